@@ -1,0 +1,158 @@
+/**
+ * The result of solving a board: plain JSON-serialisable data, the same for
+ * the library and `trivar solve --json`.
+ *
+ * Sign conventions: load convention (P > 0 consumed, Q > 0 lagging/inductive);
+ * line currents flow from the source into the board; the neutral current flows
+ * from the board back to the source, so ΣI_line = I_N. Angles in degrees,
+ * referred to the phase-A source EMF.
+ */
+import type { Phasor } from '../complex.js';
+import type { PhaseId } from '../board/boardModel.js';
+import type { SequenceSet } from './symmetricalComponents.js';
+import type { BoardPowerDefinitions } from './powerDefinitions.js';
+
+export type PowerFactorSense = 'lagging' | 'leading' | 'unity';
+
+export interface PowerReading {
+  readonly kW: number;
+  readonly kvar: number;
+  readonly kVA: number;
+  /** Displacement power factor |P|/S (1 when S = 0). */
+  readonly pf: number;
+  readonly sense: PowerFactorSense;
+}
+
+export interface PhaseReading extends PowerReading {
+  readonly phase: PhaseId;
+  /** Line-to-neutral voltage at the board (to the source star point on a 3-wire board), V. */
+  readonly voltage: Phasor;
+  readonly voltagePercent: number;
+  /** Line current, source → board, A. */
+  readonly current: Phasor;
+  /** Line current as % of the line conductor rating; null without a rating. */
+  readonly loadingPercent: number | null;
+  /** Drop from the open-circuit EMF to the board voltage, % of nominal (magnitudes). */
+  readonly voltageDropPercent: number;
+}
+
+export interface LineToLineReading {
+  readonly pair: `${PhaseId}-${PhaseId}`;
+  readonly voltage: Phasor;
+  readonly voltagePercent: number;
+}
+
+export interface NeutralReading {
+  /** Board → source, A. Zero when the neutral is open. */
+  readonly current: Phasor;
+  /** Voltage of the board neutral bar to the source star point (neutral-point displacement), V. */
+  readonly barVoltage: Phasor | null;
+  readonly ratingA: number | null;
+  readonly loadingPercent: number | null;
+  /** Neutral current as % of the largest line current. */
+  readonly percentOfLargestLine: number;
+}
+
+export interface BranchReading {
+  readonly from: string;
+  readonly to: string;
+  readonly voltage: Phasor;
+  readonly voltagePercent: number;
+  readonly current: Phasor;
+  readonly kW: number;
+  readonly kvar: number;
+}
+
+export interface LoadReading extends PowerReading {
+  readonly name: string;
+  readonly connection: string;
+  readonly model: string;
+  readonly origin: 'board' | 'added';
+  readonly branches: readonly BranchReading[];
+  /** Largest branch current, A. */
+  readonly currentA: number;
+  /** Floating star point: its voltage to the centroid of the line voltages, V. */
+  readonly starPointShift: Phasor | null;
+  readonly energised: boolean;
+}
+
+export interface UnbalanceReading {
+  /** IEC voltage unbalance factor |V2|/|V1|, %. */
+  readonly voltageFactorPercent: number;
+  /** |V0|/|V1|, %. */
+  readonly zeroSequenceVoltagePercent: number;
+  /** NEMA MG 1 line-voltage unbalance rate, %. */
+  readonly lineVoltageRatePercent: number;
+  /** IEEE phase-voltage unbalance rate (line-to-neutral magnitudes), %. */
+  readonly phaseVoltageRatePercent: number;
+  /** |I2|/|I1|, %. */
+  readonly currentNegativePercent: number;
+  /** |I0|/|I1|, %. */
+  readonly currentZeroPercent: number;
+  /** Largest deviation of a line-current magnitude from their average, %. */
+  readonly currentDeviationPercent: number;
+}
+
+export interface LossReading {
+  readonly sourceKW: number;
+  readonly lineFeederKW: number;
+  readonly neutralKW: number;
+  readonly totalKW: number;
+  /** Reactive power absorbed by source and feeder reactances, kvar. */
+  readonly totalKvar: number;
+}
+
+export interface BoardWarning {
+  readonly code: string;
+  readonly message: string;
+  readonly value: number;
+  readonly threshold: number;
+}
+
+export interface OpenNeutralLoadReading {
+  readonly name: string;
+  readonly phase: PhaseId;
+  readonly voltage: number;
+  readonly voltagePercent: number;
+  readonly flag: 'over' | 'under' | 'ok';
+}
+
+export interface OpenNeutralStudy {
+  readonly applicable: boolean;
+  /** Why not, when not applicable. */
+  readonly note: string | null;
+  /** Voltage of the floating neutral bar to the source star point, V. */
+  readonly barVoltage: Phasor | null;
+  readonly loads: readonly OpenNeutralLoadReading[];
+  readonly highestPercent: number | null;
+  readonly lowestPercent: number | null;
+  readonly cautions: readonly string[];
+}
+
+export interface BoardResult {
+  readonly board: {
+    readonly name: string;
+    readonly system: string;
+    readonly sequence: 'ABC' | 'ACB';
+    readonly frequencyHz: number;
+    readonly nominalLineToNeutralV: number;
+    readonly nominalLineToLineV: number | null;
+    readonly neutralOpen: boolean;
+  };
+  readonly solve: { readonly iterations: number; readonly lastChangePercent: number };
+  readonly phases: readonly PhaseReading[];
+  readonly lineToLine: readonly LineToLineReading[];
+  readonly neutral: NeutralReading | null;
+  readonly loads: readonly LoadReading[];
+  /** Sum of the loads. */
+  readonly totals: PowerReading;
+  /** Delivered by the source EMFs (= totals + losses). */
+  readonly source: { readonly kW: number; readonly kvar: number };
+  readonly losses: LossReading;
+  readonly sequences: { readonly voltage: SequenceSet<Phasor>; readonly current: SequenceSet<Phasor> } | null;
+  readonly unbalance: UnbalanceReading | null;
+  readonly powerFactor: BoardPowerDefinitions;
+  readonly warnings: readonly BoardWarning[];
+  readonly cautions: readonly string[];
+  readonly openNeutral: OpenNeutralStudy | null;
+}

@@ -1,0 +1,81 @@
+/**
+ * Warnings with their thresholds stated, and the cautions shown with results.
+ * All wording for board results lives here.
+ */
+import type { BoardWarning, NeutralReading, PhaseReading, LoadReading, UnbalanceReading } from './boardResult.js';
+
+export const WARNING_THRESHOLDS = {
+  /** Voltage unbalance factor above which supply-quality standards start to object (EN 50160, IEC 61000-2-2: 2 %). */
+  voltageUnbalancePercent: 2,
+  /** Supply band used for the voltage check: ±10 % of nominal (EN 50160 LV band). */
+  voltageBandPercent: 10,
+} as const;
+
+const fmt = (x: number, digits = 1) => x.toFixed(digits);
+
+export function boardWarnings(input: {
+  readonly phases: readonly PhaseReading[];
+  readonly neutral: NeutralReading | null;
+  readonly unbalance: UnbalanceReading | null;
+  readonly loads: readonly LoadReading[];
+  readonly lineRatingA: number | null;
+}): BoardWarning[] {
+  const out: BoardWarning[] = [];
+  const { phases, neutral, unbalance, loads, lineRatingA } = input;
+  const smallest = Math.min(...phases.map((p) => p.current.magnitude));
+  const largest = Math.max(...phases.map((p) => p.current.magnitude));
+  if (neutral && phases.length > 1 && neutral.current.magnitude > smallest && neutral.current.magnitude > 0.01 * largest)
+    out.push({
+      code: 'neutral-above-phase',
+      message: `neutral carries ${fmt(neutral.current.magnitude)} A, more than the lightest phase (${fmt(smallest)} A): it is a current-carrying conductor and must be sized for it`,
+      value: neutral.current.magnitude,
+      threshold: smallest,
+    });
+  if (neutral?.ratingA != null && neutral.current.magnitude > neutral.ratingA)
+    out.push({
+      code: 'neutral-over-rating',
+      message: `neutral current ${fmt(neutral.current.magnitude)} A exceeds the neutral rating of ${fmt(neutral.ratingA)} A`,
+      value: neutral.current.magnitude,
+      threshold: neutral.ratingA,
+    });
+  if (lineRatingA !== null)
+    for (const p of phases)
+      if (p.current.magnitude > lineRatingA)
+        out.push({
+          code: 'line-over-rating',
+          message: `phase ${p.phase} carries ${fmt(p.current.magnitude)} A, above the line rating of ${fmt(lineRatingA)} A`,
+          value: p.current.magnitude,
+          threshold: lineRatingA,
+        });
+  if (unbalance && unbalance.voltageFactorPercent > WARNING_THRESHOLDS.voltageUnbalancePercent)
+    out.push({
+      code: 'voltage-unbalance',
+      message: `voltage unbalance factor ${fmt(unbalance.voltageFactorPercent, 2)} % is above ${WARNING_THRESHOLDS.voltageUnbalancePercent} % (EN 50160 / IEC 61000-2-2 level); three-phase motors need derating`,
+      value: unbalance.voltageFactorPercent,
+      threshold: WARNING_THRESHOLDS.voltageUnbalancePercent,
+    });
+  const band = WARNING_THRESHOLDS.voltageBandPercent;
+  for (const load of loads)
+    for (const b of load.branches) {
+      const dev = b.voltagePercent - 100;
+      if (load.energised && Math.abs(dev) > band)
+        out.push({
+          code: dev > 0 ? 'overvoltage' : 'undervoltage',
+          message: `load "${load.name}" (${b.from}-${b.to}) sees ${fmt(b.voltage.magnitude)} V, ${fmt(b.voltagePercent)} % of nominal, outside ±${band} %`,
+          value: b.voltagePercent,
+          threshold: 100 + Math.sign(dev) * band,
+        });
+    }
+  return out;
+}
+
+export const GENERAL_CAUTION =
+  'trivar reports what the model you entered predicts. Confirm with measurements, and have any change to the installation designed to local codes and checked by a licensed professional.';
+
+export const NEUTRAL_CAUTION =
+  'A neutral carrying more current than a phase conductor can overheat without tripping any overcurrent device (the neutral is normally unprotected). Check its size and terminations.';
+
+export const OPEN_NEUTRAL_CAUTIONS: readonly string[] = [
+  'A broken neutral is a hazardous condition: line-to-neutral equipment on the lightly loaded phases can see up to the line-to-line voltage and be destroyed, and in TN-C-S installations exposed metalwork can become live.',
+  'Never switch, fuse or disconnect the neutral (PEN) on its own; inspect neutral terminations and bonding regularly.',
+];

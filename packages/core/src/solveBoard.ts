@@ -1,0 +1,43 @@
+import { parseBoard } from './board/validateBoard.js';
+import { normaliseBoard } from './board/normaliseBoard.js';
+import type { Board } from './board/boardModel.js';
+import type { BoardSpec } from './board/boardSchema.js';
+import { solveNetwork, type SolveOptions } from './network/solveNetwork.js';
+import { analyseSolution } from './analysis/analyseSolution.js';
+import { studyOpenNeutral } from './analysis/studyOpenNeutral.js';
+import type { BoardResult } from './analysis/boardResult.js';
+
+export interface SolveBoardOptions extends SolveOptions {
+  /**
+   * Also solve the board with its neutral conductor broken and report what each
+   * line-to-neutral load would see. The board file's `studies.openNeutral` turns it on too.
+   * @defaultValue false
+   */
+  readonly openNeutral?: boolean;
+}
+
+/**
+ * Solves a normalised board (see `normaliseBoard`) and analyses the result.
+ * @throws {NumericalError} for a singular network or a load iteration that does not settle.
+ */
+export function solveBoardModel(board: Board, options: SolveBoardOptions = {}): BoardResult {
+  const result = analyseSolution(solveNetwork(board, options));
+  const wantOpen = options.openNeutral ?? board.studies.openNeutral;
+  return wantOpen ? { ...result, openNeutral: studyOpenNeutral(board, options) } : result;
+}
+
+/**
+ * Validates, normalises and solves a board given as a plain object (a parsed
+ * board file) or a typed `BoardSpec`.
+ * @throws {InputError} listing every problem in the board, each with its path.
+ * @throws {NumericalError} for a singular network or a load iteration that does not settle.
+ * @example
+ * const result = solveBoard({
+ *   supply: { system: 'three-phase-4wire', voltage: { lineToLine: 400 }, frequencyHz: 50 },
+ *   loads: [{ name: 'heater', connection: 'A-N', kW: 2.3, pf: 1 }],
+ * });
+ * result.neutral?.current.magnitude //=> 10 (A: the whole phase-A current returns in the neutral)
+ */
+export function solveBoard(input: BoardSpec | unknown, options: SolveBoardOptions = {}): BoardResult {
+  return solveBoardModel(normaliseBoard(parseBoard(input)), options);
+}

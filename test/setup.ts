@@ -1,0 +1,20 @@
+/**
+ * Test setup: reproducible fast-check runs and a core that stays silent.
+ * Set TRIVAR_SEED to replay a failing property run; the seed is printed on failure.
+ */
+import fc from 'fast-check';
+import { afterEach, beforeEach, vi } from 'vitest';
+
+const seed = process.env.TRIVAR_SEED ? Number(process.env.TRIVAR_SEED) : Date.now() ^ (Math.random() * 0x100000000);
+fc.configureGlobal({ seed, numRuns: Number(process.env.TRIVAR_RUNS ?? 100) });
+
+// Core must not write to the console: any test that makes it do so fails.
+let spies: ReturnType<typeof vi.spyOn>[] = [];
+beforeEach(() => {
+  spies = (['log', 'info', 'warn', 'error', 'debug'] as const).map((m) => vi.spyOn(console, m));
+});
+afterEach(() => {
+  const calls = spies.flatMap((s) => s.mock.calls);
+  for (const s of spies) s.mockRestore();
+  if (calls.length) throw new Error(`a test wrote to the console: ${JSON.stringify(calls[0]).slice(0, 200)}`);
+});
