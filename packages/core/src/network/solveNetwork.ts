@@ -12,7 +12,7 @@
  */
 import { abs, add, conj, mul, neg, scale, sub, ZERO, isFiniteComplex, type ComplexValue } from '../complex.js';
 import { NumericalError } from '../errors.js';
-import { solveComplexSystem } from '../_internal/linearSolve.js';
+import { solveComplexSystem } from '../_internal/complexLu.js';
 import type { Board, LoadBranch } from '../board/boardModel.js';
 import { buildTopology, REFERENCE, type NetworkTopology } from './networkTopology.js';
 

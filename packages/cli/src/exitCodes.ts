@@ -1,0 +1,39 @@
+/** Exit codes of the trivar CLI, decided in one place. */
+import { InputError, NumericalError } from '@trivar/core';
+
+export const EXIT = {
+  ok: 0,
+  /** A bug in trivar: the message says so. */
+  internal: 1,
+  /** The command line itself is wrong (unknown option, missing argument). */
+  usage: 2,
+  /** The board file cannot be read or is not a valid board. */
+  input: 3,
+  /** The board is valid but has no solution (singular network, loads beyond what the supply can deliver). */
+  numerical: 4,
+} as const;
+
+/** A problem with the command line or the files it names. */
+export class UsageError extends Error {
+  override readonly name = 'UsageError';
+  readonly exitCode: number;
+  constructor(message: string, exitCode: number = EXIT.usage) {
+    super(message);
+    this.exitCode = exitCode;
+  }
+}
+
+export function exitCodeFor(error: unknown): number {
+  if (error instanceof InputError) return EXIT.input;
+  if (error instanceof NumericalError) return EXIT.numerical;
+  if (error instanceof UsageError) return error.exitCode;
+  return EXIT.internal;
+}
+
+export function messageFor(error: unknown): string {
+  if (error instanceof InputError) return `error: ${error.message}`;
+  if (error instanceof NumericalError) return `error: no solution: ${error.message}`;
+  if (error instanceof UsageError) return `error: ${error.message}`;
+  const detail = error instanceof Error ? (error.stack ?? error.message) : String(error);
+  return `internal error (a bug in trivar, please report it with the board file):\n${detail}`;
+}
