@@ -3,7 +3,7 @@
  *
  * Why by hand, when mathjs has `lup`/`lusolve`: both give the same answers
  * (test/reference/mathjsLinearSolve.test.ts checks this solver against mathjs on
- * random systems and on every board network), but mathjs builds its typed
+ * random systems; test/reference/ngspice.test.ts checks whole board solves), but mathjs builds its typed
  * functions lazily on first use and dispatches every scalar operation through
  * them. Measured on the bakery example, `trivar solve` took 0.39 s with mathjs
  * and 0.20 s with this routine (bare `node -e ""`: 0.085 s); the start-up budget
@@ -111,4 +111,26 @@ export function solveComplexSystem(
     x[i] = { re: (sr * pr + si * pi) / pd, im: (si * pr - sr * pi) / pd };
   }
   return { ok: true, x };
+}
+
+/**
+ * For a singular A, the unknown that is least determined: the largest entry of
+ * A's (near) null vector, found by one step of inverse iteration on A + εI.
+ * Used only to name the culprit in an error message.
+ */
+export function leastDeterminedUnknown(a: readonly (readonly ComplexValue[])[]): number {
+  const n = a.length;
+  let largest = 0;
+  for (const row of a) for (const v of row) largest = Math.max(largest, Math.hypot(v.re, v.im));
+  const shift = 1e-9 * (largest || 1);
+  const shifted = a.map((row, i) => row.map((v, j) => (i === j ? { re: v.re + shift, im: v.im } : v)));
+  // A rhs with no special structure, so it has a component along the null vector.
+  const rhs = Array.from({ length: n }, (_, i) => ({ re: 1 + i / n, im: 0.5 - i / (2 * n) }));
+  const solved = solveComplexSystem(shifted, rhs, 0);
+  if (!solved.ok) return solved.column;
+  let best = 0;
+  solved.x.forEach((v, i) => {
+    if (Math.hypot(v.re, v.im) > Math.hypot(solved.x[best]!.re, solved.x[best]!.im)) best = i;
+  });
+  return best;
 }

@@ -4,6 +4,7 @@
  * neutral bar (Millman's theorem gives its voltage); this reports what each one sees.
  */
 import { abs, toPhasor } from '../complex.js';
+import { NumericalError } from '../errors.js';
 import type { Board, PhaseId } from '../board/boardModel.js';
 import { solveNetwork, terminalVoltage, type SolveOptions } from '../network/solveNetwork.js';
 import type { OpenNeutralLoadReading, OpenNeutralStudy } from './boardResult.js';
@@ -21,7 +22,14 @@ export function studyOpenNeutral(board: Board, options?: SolveOptions): OpenNeut
   });
   if (!board.hasNeutral) return notApplicable('a three-phase-3wire board has no neutral conductor to lose');
   if (board.system === 'single-phase') return notApplicable('on a single-phase 2-wire board a broken neutral simply de-energises every load');
-  const broken = solveNetwork({ ...board, neutralOpen: true }, options);
+  let broken;
+  try {
+    broken = solveNetwork({ ...board, neutralOpen: true }, options);
+  } catch (error) {
+    // The what-if failing must not hide the main result; say why instead.
+    if (error instanceof NumericalError) return notApplicable(`the board with a broken neutral has no solution: ${error.message}`);
+    throw error;
+  }
   const band = WARNING_THRESHOLDS.voltageBandPercent;
   const loads: OpenNeutralLoadReading[] = [];
   board.loads.forEach((load, li) =>

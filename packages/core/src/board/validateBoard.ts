@@ -77,13 +77,13 @@ export function parseBoard(input: unknown): BoardSpec {
  * @throws {InputError}
  */
 export function readBoardText(text: string): unknown {
-  const doc = parseDocument(text, { prettyErrors: false, uniqueKeys: true });
+  const doc = parseDocument(text, { prettyErrors: true, uniqueKeys: true });
   if (doc.errors.length) {
     throw new InputError(
       doc.errors.map((e) => {
         const at = e.linePos?.[0];
         const where = at ? `line ${at.line}, column ${at.col}` : 'the file';
-        return { code: 'syntax', path: '', expected: 'valid YAML or JSON', message: `${where}: ${e.message.split('\n')[0]}` };
+        return { code: 'syntax', path: '', expected: 'valid YAML or JSON', message: `${where}: ${e.message.split('\n')[0]!.replace(/ at line \d+, column \d+:?$/, '')}` };
       }),
       'the board file could not be read',
     );

@@ -12,7 +12,7 @@
  */
 import { abs, add, conj, mul, neg, scale, sub, ZERO, isFiniteComplex, type ComplexValue } from '../complex.js';
 import { NumericalError } from '../errors.js';
-import { solveComplexSystem } from '../_internal/complexLu.js';
+import { leastDeterminedUnknown, solveComplexSystem } from '../_internal/complexLu.js';
 import type { Board, LoadBranch } from '../board/boardModel.js';
 import { buildTopology, REFERENCE, type NetworkTopology } from './networkTopology.js';
 
@@ -165,8 +165,8 @@ function solveLinearStep(board: Board, topo: NetworkTopology, live: boolean[], a
   );
   const result = solveComplexSystem(a, rhs);
   if (!result.ok) {
-    const node = index.indexOf(result.column);
-    const what = node >= 0 ? topo.nodeNames[node] : `the EMF of phase ${board.phases[result.column - size] ?? '?'}`;
+    const node = index.indexOf(leastDeterminedUnknown(a));
+    const what = node >= 0 ? topo.nodeNames[node] : 'a source terminal';
     throw new NumericalError(
       'singular',
       `the network has no unique solution: the voltage of ${what} is not fixed — the admittances meeting there cancel (series resonance of L and C) or form a loop of ideal sources`,

@@ -1,0 +1,82 @@
+import { readFileSync, readdirSync } from 'node:fs';
+import { describe, expect, it } from 'vitest';
+import { parseBoardText, solveBoard } from '@trivar/core';
+import { ROOT, runTrivar } from './runTrivar.js';
+
+const examples = readdirSync(`${ROOT}examples`).filter((f) => f.endsWith('.yaml'));
+
+describe('trivar solve (built binary)', () => {
+  it.each(examples)('solves examples/%s and prints the report', (file) => {
+    const r = runTrivar(['solve', `examples/${file}`]);
+    expect(r.stderr).toBe('');
+    expect(r.code).toBe(0);
+    const board = solveBoard(parseBoardText(readFileSync(`${ROOT}examples/${file}`, 'utf8')));
+    expect(r.stdout).toContain(board.board.name);
+    // The phase-A line current printed matches the library to the shown precision.
+    const row = r.stdout.split('\n').find((l) => /^\s+A\s/.test(l))!;
+    expect(row).toContain(board.phases[0]!.current.magnitude.toFixed(1));
+    expect(r.stdout).toContain('licensed professional');
+  });
+
+  it('--json prints exactly the library result', () => {
+    const r = runTrivar(['solve', 'examples/corner-bakery.yaml', '--json']);
+    expect(r.code).toBe(0);
+    const expected = solveBoard(parseBoardText(readFileSync(`${ROOT}examples/corner-bakery.yaml`, 'utf8')));
+    expect(JSON.parse(r.stdout)).toEqual(JSON.parse(JSON.stringify(expected)));
+  });
+
+  it('reads the board from standard input with -', () => {
+    const text = readFileSync(`${ROOT}examples/harbour-cottages.yaml`, 'utf8');
+    const r = runTrivar(['solve', '-', '--json'], text);
+    expect(r.code).toBe(0);
+    expect(JSON.parse(r.stdout).board.system).toBe('split-phase');
+  });
+
+  it('--open-neutral adds the broken-neutral study with its caution', () => {
+    const r = runTrivar(['solve', 'examples/hillside-workshop.yaml', '--open-neutral']);
+    expect(r.code).toBe(0);
+    expect(r.stdout).toContain('If the neutral conductor broke');
+    expect(r.stdout).toMatch(/hazardous/);
+  });
+
+  it('exits 3 with every problem and its field path for an invalid board', () => {
+    const r = runTrivar(['solve', '-'], 'supply:\n  system: three-phase-4wire\n  voltage: { lineToLine: 0 }\n  frequencyHz: 50\nloads:\n  - { name: x, connection: A-N, kW: 1, pf: 1.5 }\n');
+    expect(r.code).toBe(3);
+    expect(r.stdout).toBe('');
+    expect(r.stderr).toContain('supply.voltage.lineToLine');
+    expect(r.stderr).toContain('loads[0].pf');
+    expect(r.stderr).not.toMatch(/\n\s+at /);
+  });
+
+  it('exits 3 for a missing file, 2 for a wrong command line', () => {
+    expect(runTrivar(['solve', 'examples/no-such-board.yaml']).code).toBe(3);
+    expect(runTrivar(['solve', 'examples/corner-bakery.yaml', '--no-such-option']).code).toBe(2);
+    expect(runTrivar(['solve']).code).toBe(2);
+  });
+
+  it('exits 4 when the network has no solution (resonant neutral bar)', () => {
+    // The neutral conductor's −j0.1 S and the capacitor's +j0.1 S meet at the bar and cancel.
+    const board = [
+      'supply: { system: three-phase-4wire, voltage: { lineToLine: 400 }, frequencyHz: 50 }',
+      'feeder: { neutral: { r: 0, x: 10 } }',
+      'loads:',
+      '  - { name: cap, connection: A-N, ohms: { r: 0, x: -10 } }',
+    ].join('\n');
+    const r = runTrivar(['solve', '-'], board);
+    expect(r.code).toBe(4);
+    expect(r.stderr).toContain('the board neutral bar');
+    expect(r.stderr).not.toMatch(/\n\s+at /);
+  });
+
+  it('help text lists the options and exit codes', () => {
+    const r = runTrivar(['solve', '--help']);
+    expect(r.code).toBe(0);
+    expect(r.stdout).toMatchSnapshot();
+  });
+
+  it('schema prints the JSON Schema shipped with core', () => {
+    const r = runTrivar(['schema']);
+    expect(r.code).toBe(0);
+    expect(JSON.parse(r.stdout)).toEqual(JSON.parse(readFileSync(`${ROOT}packages/core/board.schema.json`, 'utf8')));
+  });
+});
