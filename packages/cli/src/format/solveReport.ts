@@ -60,7 +60,7 @@ export function phaseTable(r: BoardResult): string {
       { header: 'V' },
       { header: '∠V°' },
       { header: '%nom' },
-      { header: 'I A' },
+      { header: 'A' },
       { header: '∠I°' },
       { header: 'kW' },
       { header: 'kvar' },
@@ -70,7 +70,11 @@ export function phaseTable(r: BoardResult): string {
     rows,
   );
   const ll = r.lineToLine.map((l) => `${l.pair} ${fixed(l.voltage.magnitude, 1)} V (${fixed(l.voltagePercent, 1)} %)`).join('   ');
-  const note = r.neutral ? '\n  (N row: neutral bar voltage to the source star point, and neutral current)' : '';
+  const notes: string[] = [];
+  if (r.neutral) notes.push('N row: neutral bar voltage to the source star point, and the neutral current.');
+  if (r.loads.some((l) => /^[ABC]-[ABC]$|delta/.test(l.connection)))
+    notes.push('Line-to-line loads split their power unevenly between their two lines: one line leads, the other lags.');
+  const note = notes.map((n) => `\n  (${n})`).join('');
   return table + note + (ll ? `\n  line-to-line: ${ll}` : '');
 }
 
@@ -96,7 +100,7 @@ export function loadTable(r: BoardResult): string {
       { header: 'model', align: 'left' },
       { header: 'V' },
       { header: '%nom' },
-      { header: 'I A' },
+      { header: 'A' },
       { header: 'kW' },
       { header: 'kvar' },
       { header: 'PF', align: 'left' },

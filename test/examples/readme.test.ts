@@ -1,0 +1,17 @@
+/** The README shows real output: its demo block must equal what the built CLI prints now. */
+import { readFileSync } from 'node:fs';
+import { describe, expect, it } from 'vitest';
+import { ROOT, runTrivar } from '../cli/runTrivar.js';
+
+describe('README', () => {
+  const readme = readFileSync(`${ROOT}README.md`, 'utf8');
+  it('demo output block matches `trivar solve examples/corner-bakery.yaml`', () => {
+    const block = readme.split('<!-- demo-output:start -->')[1]!.split('<!-- demo-output:end -->')[0]!;
+    const shown = block.replace(/^\s*```text\n/, '').replace(/```\s*$/, '');
+    expect(shown.trimEnd()).toBe(runTrivar(['solve', 'examples/corner-bakery.yaml']).stdout.trimEnd());
+  });
+  it('names the two set-up commands', () => {
+    expect(readme).toContain('npm run demo');
+    expect(readme).toContain('npm test');
+  });
+});
