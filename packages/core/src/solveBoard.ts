@@ -6,6 +6,7 @@ import { solveNetwork, type SolveOptions } from './network/solveNetwork.js';
 import { analyseSolution } from './analysis/analyseSolution.js';
 import { studyOpenNeutral } from './analysis/studyOpenNeutral.js';
 import type { BoardResult } from './analysis/boardResult.js';
+import { NumericalError } from './errors.js';
 
 export interface SolveBoardOptions extends SolveOptions {
   /**
@@ -23,7 +24,19 @@ export interface SolveBoardOptions extends SolveOptions {
 export function solveBoardModel(board: Board, options: SolveBoardOptions = {}): BoardResult {
   const result = analyseSolution(solveNetwork(board, options));
   const wantOpen = options.openNeutral ?? board.studies.openNeutral;
-  return wantOpen ? { ...result, openNeutral: studyOpenNeutral(board, options) } : result;
+  return assertFiniteResult(wantOpen ? { ...result, openNeutral: studyOpenNeutral(board, options) } : result);
+}
+
+/** No NaN or infinity may reach a caller (JSON would silently turn them into null). */
+function assertFiniteResult<T>(result: T): T {
+  const visit = (value: unknown, path: string): void => {
+    if (typeof value === 'number') {
+      if (!Number.isFinite(value)) throw new NumericalError('non-finite', `the result has a non-finite value at ${path}; check for extreme impedance or power values`);
+    } else if (Array.isArray(value)) value.forEach((v, i) => visit(v, `${path}[${i}]`));
+    else if (value && typeof value === 'object') for (const [k, v] of Object.entries(value)) visit(v, path ? `${path}.${k}` : k);
+  };
+  visit(result, '');
+  return result;
 }
 
 /**
