@@ -37,11 +37,22 @@ describe('normaliseBoard', () => {
     expect(b.loads[0]!.branches[0]!.sNominal.im).toBeCloseTo(-3200, 9);
     expect(b.loads[1]!.branches[0]!.sNominal.re).toBeCloseTo((Math.sqrt(3) * 400 * 10) / 3, 9);
   });
-  it('keeps ACB-free details: split-phase is 2 × 120 V, star loads on 3-wire float', () => {
+  it('split-phase is 2 × 120 V; impedance star loads on 3-wire float', () => {
     const sp = normaliseBoard(parseBoard({ supply: { system: 'split-phase', voltage: { lineToNeutral: 120 }, frequencyHz: 60 }, loads: [{ name: 'h', connection: 'A-B', kW: 4.8, pf: 1 }] }));
     expect(sp.nominalLineToLineV).toBe(240);
     expect(sp.emf[1]!.re).toBeCloseTo(-120, 9);
-    const tw = normaliseBoard(parseBoard({ supply: { ...base, system: 'three-phase-3wire' }, loads: [{ name: 's', connection: 'ABC-star', kW: 3, pf: 1 }] }));
+    const tw = normaliseBoard(
+      parseBoard({
+        supply: { ...base, system: 'three-phase-3wire' },
+        loads: [
+          { name: 's', connection: 'ABC-star', ohms: { r: 50, x: 5 } },
+          { name: 'p', connection: 'ABC-star', kW: 3, pf: 1 },
+        ],
+      }),
+    );
     expect(tw.loads[0]!.branches[0]!.to).toBe('star:0');
+    // A floating star of voltage-dependent elements is taken as its equivalent delta, same rating.
+    expect(tw.loads[1]!.branches.map((b) => `${b.from}-${b.to}`)).toEqual(['A-B', 'B-C', 'C-A']);
+    expect(tw.loads[1]!.branches[0]!.sNominal.re).toBeCloseTo(1000, 9);
   });
 });

@@ -59,7 +59,7 @@ describe('solveBoard: known answers on simple boards', () => {
     expect(r.loads[0]!.pf).toBeCloseTo(0.95, 8);
   });
   it('leaves a load with nothing connected to it dead instead of failing', () => {
-    const r = solveBoard({ supply: { ...supply4, system: 'three-phase-3wire' }, loads: [{ name: 'spare', connection: 'ABC-star', kW: 0, kvar: 0 }, { name: 'o', connection: 'A-B', kW: 1, pf: 1 }] });
+    const r = solveBoard({ supply: { ...supply4, system: 'three-phase-3wire' }, loads: [{ name: 'spare', connection: 'ABC-star', kW: 0, kvar: 0, model: 'constant-impedance' }, { name: 'o', connection: 'A-B', kW: 1, pf: 1 }] });
     expect(r.loads[0]!.energised).toBe(false);
     expect(r.loads[1]!.kW).toBeCloseTo(1, 9);
   });

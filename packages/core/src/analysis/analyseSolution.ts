@@ -16,8 +16,8 @@ import {
   type ComplexValue,
 } from '../complex.js';
 import { isThreePhase } from '../board/systemTopology.js';
-import type { PhaseId } from '../board/boardModel.js';
-import { terminalVoltage, type NetworkSolution } from '../network/solveNetwork.js';
+import type { LoadBranch, PhaseId } from '../board/boardModel.js';
+import { terminalVoltage, type BranchState, type NetworkSolution } from '../network/solveNetwork.js';
 import { sequenceComponents } from './symmetricalComponents.js';
 import { deviationFromAveragePercent } from './unbalanceIndices.js';
 import { boardPowerDefinitions } from './powerDefinitions.js';
@@ -46,6 +46,16 @@ const PAIRS: Record<string, readonly [PhaseId, PhaseId][]> = {
   'split-phase': [['A', 'B']],
   'single-phase': [],
 };
+
+/** Current a load draws from one phase terminal: Σ of its branch currents leaving that terminal. */
+function lineCurrentOfLoad(branches: readonly LoadBranch[], states: readonly BranchState[], phase: PhaseId): ComplexValue {
+  let total = ZERO;
+  branches.forEach((b, k) => {
+    if (b.from === phase) total = add(total, states[k]!.current);
+    if (b.to === phase) total = sub(total, states[k]!.current);
+  });
+  return total;
+}
 
 export function analyseSolution(solution: NetworkSolution): BoardResult {
   const { board } = solution;
@@ -113,7 +123,7 @@ export function analyseSolution(solution: NetworkSolution): BoardResult {
       origin: load.origin,
       branches,
       ...powerReading(total),
-      currentA: Math.max(...states.map((s) => abs(s.current))),
+      currentA: Math.max(...board.phases.map((phase) => abs(lineCurrentOfLoad(load.branches, states, phase)))),
       starPointShift: starV ? toPhasor(sub(starV, busCentroid)) : null,
       energised: states.some((s) => s.energised),
     };

@@ -25,7 +25,7 @@ export interface PowerReading {
 
 export interface PhaseReading extends PowerReading {
   readonly phase: PhaseId;
-  /** Line-to-neutral voltage at the board (to the source star point on a 3-wire board), V. */
+  /** Line-to-neutral voltage at the board: to the neutral bar (4-wire), or to the centroid of the line voltages (3-wire virtual neutral), V. */
   readonly voltage: Phasor;
   readonly voltagePercent: number;
   /** Line current, source → board, A. */
@@ -69,7 +69,7 @@ export interface LoadReading extends PowerReading {
   readonly model: string;
   readonly origin: 'board' | 'added';
   readonly branches: readonly BranchReading[];
-  /** Largest branch current, A. */
+  /** Largest current the load draws from any one line, A (the line current of a three-phase load). */
   readonly currentA: number;
   /** Floating star point: its voltage to the centroid of the line voltages, V. */
   readonly starPointShift: Phasor | null;

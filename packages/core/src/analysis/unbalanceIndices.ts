@@ -22,6 +22,7 @@ export function deviationFromAveragePercent(magnitudes: readonly number[]): numb
 export function unbalanceFactorFromLineMagnitudes([uab, ubc, uca]: readonly [number, number, number]): number {
   const s2 = uab ** 2 + ubc ** 2 + uca ** 2;
   const beta = (uab ** 4 + ubc ** 4 + uca ** 4) / (s2 * s2);
-  const root = Math.sqrt(Math.max(0, 3 - 6 * beta));
+  // Clamps keep rounding on a balanced set (β = 1/3, root = 1) from producing √(negative).
+  const root = Math.min(1, Math.sqrt(Math.max(0, 3 - 6 * beta)));
   return 100 * Math.sqrt((1 - root) / (1 + root));
 }

@@ -74,8 +74,12 @@ function loadBranches(load: LoadSpec, index: number, spec: BoardSpec, ln: number
   const zip = load.zip ?? ZIP_OF_MODEL[load.model ?? (load.ohms ? 'constant-impedance' : 'constant-power')]!;
   const model = load.zip ? 'zip' : (load.model ?? (load.ohms ? 'constant-impedance' : 'constant-power'));
   const llV = ll ?? ln;
-  const make = (pairs: [Terminal, Terminal][], vNominal: number, lineCurrentToVA: number): BoardLoad => {
-    const total = nominalPower(load, vNominal, pairs.length, lineCurrentToVA);
+  const make = (
+    pairs: [Terminal, Terminal][],
+    vNominal: number,
+    lineCurrentToVA: number,
+    total = nominalPower(load, vNominal, pairs.length, lineCurrentToVA),
+  ): BoardLoad => {
     const share = scale(total, 1 / pairs.length);
     const branches: LoadBranch[] = pairs.map(([from, to]) => ({ from, to, sNominal: share, vNominal, zip }));
     return { name: load.name, connection: load.connection, model, branches, origin: 'board' };
@@ -83,6 +87,12 @@ function loadBranches(load: LoadSpec, index: number, spec: BoardSpec, ln: number
   const c = load.connection;
   if (c === 'ABC-star') {
     const floating = load.starPoint === 'floating' || !systemHasNeutral(spec.supply.system);
+    // A floating star of voltage-dependent elements has no unique operating point (the star point
+    // can settle in more than one place), so such a load is taken as its equivalent delta: the same
+    // rating spread over the three line-to-line pairs. Constant-impedance stars keep their real star
+    // point, whose shift is reported.
+    if (floating && zip.z !== 1)
+      return make([['A', 'B'], ['B', 'C'], ['C', 'A']], llV, Math.sqrt(3) * llV, nominalPower(load, ln, 3, Math.sqrt(3) * llV));
     const star: Terminal = floating ? `star:${index}` : 'N';
     return make([['A', star], ['B', star], ['C', star]], ln, Math.sqrt(3) * llV);
   }

@@ -1,0 +1,16 @@
+// Refreshes the README's shown CLI output from the built CLI (run after `npm run build`).
+// test/examples/readme.test.ts fails whenever the README and the real output differ.
+import { execFileSync } from 'node:child_process';
+import { readFileSync, writeFileSync } from 'node:fs';
+
+const blocks = [['demo-output', ['solve', 'examples/corner-bakery.yaml']]];
+let readme = readFileSync('README.md', 'utf8');
+for (const [marker, args] of blocks) {
+  const out = execFileSync(process.execPath, ['packages/cli/bin/trivar.js', ...args], { encoding: 'utf8' }).trimEnd();
+  const start = `<!-- ${marker}:start -->`;
+  const end = `<!-- ${marker}:end -->`;
+  const [head, rest] = readme.split(start);
+  const tail = rest.split(end)[1];
+  readme = `${head}${start}\n\`\`\`text\n${out}\n\`\`\`\n${end}${tail}`;
+}
+writeFileSync('README.md', readme);
