@@ -1,0 +1,92 @@
+/**
+ * The best capacitor-only balancing compensator: Gauss–Newton on the solved
+ * board, each step a small convex QP,
+ *   minimise  Σ wₖ·rₖ²  +  ridge·Σ yᵢ²
+ *   subject to  yᵢ ≥ 0 (capacitors only)  and, unless leading is allowed,
+ *               every loaded line inside its lower PF bound (linearised),
+ * where r is the compensator residual (I2, I0, Q1 − Q1 target, per unit) and
+ * y the branch outputs per unit of S_base. The residual is linear in the
+ * susceptances on an ideal source, so one step is then exact; otherwise the
+ * board is re-solved and re-linearised until y settles.
+ */
+import { multiply, multiplyVector, transpose, maxAbs } from './realMatrix.js';
+import { solveQuadraticProgram } from './quadraticProgram.js';
+import { probeJacobian, type BoardProbe, type ProbeState } from './boardProbe.js';
+import { compensatorResidual, type ResidualBases } from './compensatorResidual.js';
+
+export interface CapacitorOnlyOutcome {
+  readonly state: ProbeState;
+  /** Σ wₖ·rₖ² at the answer (without the ridge term). */
+  readonly objective: number;
+  readonly converged: boolean;
+  readonly iterations: number;
+  /** True when the no-leading constraints could not all hold and were dropped. */
+  readonly leadingConstraintsDropped: boolean;
+}
+
+export interface CapacitorOnlySettings {
+  readonly weights: readonly number[];
+  readonly ridge: number;
+  /** Lower bound on Q/|P| per line, or null for a line left free. */
+  readonly lineLowerTan: readonly (number | null)[];
+  readonly maxIterations: number;
+  readonly convergence: number;
+}
+
+export function solveCapacitorOnlyCompensator(probe: BoardProbe, bases: ResidualBases, settings: CapacitorOnlySettings): CapacitorOnlyOutcome {
+  const n = probe.slots.length;
+  const sb = bases.powerKVA;
+  const lines = settings.lineLowerTan.length;
+  const measure = (s: ProbeState) => [...compensatorResidual(s, bases), ...s.lineP, ...s.lineQ];
+  let state = probe.at(new Array<number>(n).fill(0));
+  let iterations = 0;
+  let converged = false;
+  let dropped = false;
+  while (iterations < settings.maxIterations) {
+    iterations++;
+    const full = probeJacobian(probe, state, measure, 1e-4 * sb);
+    const m = full.length - 2 * lines;
+    const r = compensatorResidual(state, bases);
+    // Per-unit Jacobian of the residual with respect to y = kvar / S_base.
+    const jy = full.slice(0, m).map((row) => row.map((v) => v * sb));
+    const y = state.kvar.map((x) => x / sb);
+    const wj = jy.map((row, k) => row.map((v) => v * settings.weights[k]!));
+    const jtwj = multiply(transpose(jy), wj);
+    const offset = r.map((rk, k) => rk - jy[k]!.reduce((s, v, i) => s + v * y[i]!, 0));
+    const h = jtwj.map((row, i) => row.map((v, j) => 2 * (v + (i === j ? settings.ridge : 0))));
+    const c = multiplyVector(transpose(wj), offset).map((v) => 2 * v);
+    const rows: number[][] = [];
+    const bounds: number[] = [];
+    for (let i = 0; i < n; i++) {
+      rows.push(Array.from({ length: n }, (_, j) => (j === i ? 1 : 0)));
+      bounds.push(0);
+    }
+    const boundRows: number[][] = [];
+    const boundValues: number[] = [];
+    settings.lineLowerTan.forEach((low, line) => {
+      if (low === null) return;
+      const p = state.lineP[line]!;
+      const sign = p < 0 ? -1 : 1;
+      const g = full[m + lines + line]!.map((dq, i) => (dq - low * sign * full[m + line]![i]!) * sb);
+      const e = state.lineQ[line]! - low * sign * p - g.reduce((s, gi, i) => s + gi * y[i]!, 0);
+      boundRows.push(g);
+      boundValues.push(-e);
+    });
+    let next = dropped ? null : solveQuadraticProgram({ h, c, rows: [...rows, ...boundRows], bounds: [...bounds, ...boundValues] });
+    if (!next) {
+      dropped = dropped || boundRows.length > 0;
+      next = solveQuadraticProgram({ h, c, rows, bounds });
+    }
+    if (!next) break;
+    const kvar = next.map((v) => Math.max(0, v) * sb);
+    const change = maxAbs(kvar.map((v, i) => v - state.kvar[i]!)) / sb;
+    state = probe.at(kvar);
+    if (change <= settings.convergence) {
+      converged = true;
+      break;
+    }
+  }
+  const r = compensatorResidual(state, bases);
+  const objective = r.reduce((s, rk, k) => s + settings.weights[k]! * rk * rk, 0);
+  return { state, objective, converged, iterations, leadingConstraintsDropped: dropped };
+}

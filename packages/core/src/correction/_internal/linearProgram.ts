@@ -1,0 +1,74 @@
+/**
+ * Exact solution of a tiny linear programme by vertex enumeration.
+ *
+ * Sizing a bank against per-line targets is an LP in at most four unknowns
+ * (three branch ratings and one slack), so instead of a simplex code with its
+ * degeneracy rules we try every choice of `d` active constraints, keep the
+ * feasible vertices, and pick the best one. With ≤ 10 constraints that is a few
+ * hundred 4×4 solves. Objectives are lexicographic: the first is minimised, the
+ * next breaks ties among vertices equal in the first, and so on — the optimum
+ * of a lexicographic LP over a pointed polyhedron is always a vertex.
+ */
+import { dot, solveLinear, subsets } from './realMatrix.js';
+
+export interface LinearProgram {
+  /** Each row: coefficients of one constraint `row·z ≤ bound`. */
+  readonly rows: readonly (readonly number[])[];
+  readonly bounds: readonly number[];
+  /** Objectives to minimise, most important first. */
+  readonly objectives: readonly (readonly number[])[];
+}
+
+/** Relative tolerance for feasibility and for "equal" objective values. */
+const TOLERANCE = 1e-9;
+
+function normalised(lp: LinearProgram): { rows: number[][]; bounds: number[] } {
+  const rows: number[][] = [];
+  const bounds: number[] = [];
+  lp.rows.forEach((row, i) => {
+    const norm = Math.hypot(...row);
+    if (norm === 0) return;
+    rows.push(row.map((v) => v / norm));
+    bounds.push(lp.bounds[i]! / norm);
+  });
+  return { rows, bounds };
+}
+
+/**
+ * The lexicographically best vertex, or null when no vertex is feasible
+ * (infeasible programme). The feasible set must be pointed (e.g. every variable
+ * bounded below), which holds for all uses here.
+ */
+export function solveLinearProgram(lp: LinearProgram): number[] | null {
+  const d = lp.objectives[0]?.length ?? 0;
+  const { rows, bounds } = normalised(lp);
+  const scale = Math.max(1, ...bounds.map(Math.abs));
+  let best: number[] | null = null;
+  let bestValues: number[] = [];
+  for (const active of subsets(rows.length, d)) {
+    const z = solveLinear(
+      active.map((i) => rows[i]!),
+      active.map((i) => bounds[i]!),
+    );
+    if (!z) continue;
+    const zScale = Math.max(scale, ...z.map(Math.abs));
+    if (!rows.every((row, i) => dot(row, z) <= bounds[i]! + TOLERANCE * zScale)) continue;
+    const values = lp.objectives.map((c) => dot(c, z));
+    if (!best || isBetter(values, bestValues)) {
+      best = z;
+      bestValues = values;
+    }
+  }
+  return best;
+}
+
+function isBetter(values: readonly number[], than: readonly number[]): boolean {
+  for (let k = 0; k < values.length; k++) {
+    const a = values[k]!;
+    const b = than[k]!;
+    const slack = TOLERANCE * Math.max(1, Math.abs(a), Math.abs(b));
+    if (a < b - slack) return true;
+    if (a > b + slack) return false;
+  }
+  return false;
+}

@@ -1,0 +1,66 @@
+/**
+ * Exact solution of a tiny strictly convex quadratic programme,
+ *   minimise ½·xᵀHx + cᵀx  subject to  A·x ≥ b,
+ * by enumerating active sets. For each candidate set the equality-constrained
+ * KKT system is solved; the set whose point is primal feasible with
+ * non-negative multipliers is the optimum (unique, H being positive definite).
+ * The capacitor-only compensator has ≤ 6 unknowns and ≤ 9 constraints, i.e. at
+ * most a few hundred 12×12 solves — simpler and more predictable than an
+ * iterative active-set or projected-gradient code at this size.
+ */
+import { dot, multiplyVector, solveLinear, subsets } from './realMatrix.js';
+
+export interface QuadraticProgram {
+  readonly h: readonly (readonly number[])[];
+  readonly c: readonly number[];
+  /** Constraint rows: `rows[i]·x ≥ bounds[i]`. */
+  readonly rows: readonly (readonly number[])[];
+  readonly bounds: readonly number[];
+}
+
+const TOLERANCE = 1e-9;
+
+const objective = (qp: QuadraticProgram, x: readonly number[]) => 0.5 * dot(x, multiplyVector(qp.h, x)) + dot(qp.c, x);
+
+/** The optimum, or null when the constraints cannot all be met. */
+export function solveQuadraticProgram(qp: QuadraticProgram): number[] | null {
+  const n = qp.c.length;
+  const m = qp.rows.length;
+  const norms = qp.rows.map((r) => Math.hypot(...r) || 1);
+  const scale = Math.max(1, ...qp.c.map(Math.abs), ...qp.h.flat().map(Math.abs));
+  let best: number[] | null = null;
+  let bestValue = Infinity;
+  for (let k = 0; k <= Math.min(n, m); k++) {
+    for (const active of subsets(m, k)) {
+      // [H  −Aᵀ] [x]   [−c]
+      // [A   0 ] [λ] = [ b]
+      const size = n + k;
+      const kkt = Array.from({ length: size }, () => new Array<number>(size).fill(0));
+      const rhs = new Array<number>(size).fill(0);
+      for (let i = 0; i < n; i++) {
+        for (let j = 0; j < n; j++) kkt[i]![j] = qp.h[i]![j]!;
+        rhs[i] = -qp.c[i]!;
+      }
+      active.forEach((ci, a) => {
+        for (let j = 0; j < n; j++) {
+          kkt[n + a]![j] = qp.rows[ci]![j]!;
+          kkt[j]![n + a] = -qp.rows[ci]![j]!;
+        }
+        rhs[n + a] = qp.bounds[ci]!;
+      });
+      const sol = solveLinear(kkt, rhs);
+      if (!sol) continue;
+      const x = sol.slice(0, n);
+      const lambdas = sol.slice(n);
+      if (lambdas.some((l) => l < -TOLERANCE * scale)) continue;
+      const xScale = Math.max(1, ...x.map(Math.abs));
+      if (!qp.rows.every((row, i) => dot(row, x) >= qp.bounds[i]! - TOLERANCE * norms[i]! * xScale)) continue;
+      const value = objective(qp, x);
+      if (value < bestValue) {
+        best = x;
+        bestValue = value;
+      }
+    }
+  }
+  return best;
+}

@@ -1,0 +1,92 @@
+/**
+ * Sizing shared by the star and the delta bank: the same targets, the same
+ * loops, only the branch layout differs.
+ */
+import type { Board } from '../../board/boardModel.js';
+import type { SolveOptions } from '../../network/solveNetwork.js';
+import { checkTarget, type BoardTargetDefinition, type ResolvedTarget } from '../correctionTarget.js';
+import { lineBands } from './lineBands.js';
+import type { BankSizing } from '../correctionResult.js';
+import { deltaSlots, susceptanceFromKvar, type BranchSlot } from '../equipment.js';
+import { deltaKvarToStarKvar, MIN_DELTA_SHARE } from './floatingStar.js';
+import { infeasibleReason, sizingMethod } from '../correctionWording.js';
+import { createProbe, type ProbeState } from './boardProbe.js';
+import { sizeForLineTargets, type LoopSettings } from './sizeForLineTargets.js';
+import { sizeAlongDirection } from './sizeAlongDirection.js';
+import { branchSizings, lineComparisons } from './branchReadings.js';
+
+export interface ResolvedBankOptions {
+  readonly target: ResolvedTarget;
+  readonly share: 'equal' | 'proportional';
+  readonly solve: SolveOptions;
+  readonly loop: LoopSettings;
+}
+
+export function sizeBank(board: Board, arrangement: BankSizing['arrangement'], slots: readonly BranchSlot[], options: ResolvedBankOptions): BankSizing {
+  const { target } = options;
+  const name = arrangement === 'star-bank' ? 'star bank' : 'delta bank';
+  const floating = slots.some((s) => s.to === 'star');
+  // The loops run on `probe`; a floating star is sized as its equivalent delta (see floatingStar.ts).
+  const probe = createProbe(board, floating ? deltaSlots(board) : slots, name, options.solve);
+  const built = floating ? createProbe(board, slots, name, options.solve) : probe;
+  const toBuilt = (kvar: readonly number[]) => (floating ? deltaKvarToStarKvar(board, kvar) : [...kvar]);
+  const loop = floating ? { ...options.loop, minShare: MIN_DELTA_SHARE } : options.loop;
+  const zeros = slots.map(() => 0);
+  const start = probe.at(zeros);
+  const checkBefore = checkTarget(start.result, target);
+  const limitBands = lineBands(target, start, 'limit');
+
+  const finish = (sized: ProbeState, sizedLimit: readonly number[] | null, method: string, forced?: { status: BankSizing['status']; reasons: string[] }): BankSizing => {
+    const state = floating ? built.at(toBuilt(sized.kvar)) : sized;
+    const limitKvar = sizedLimit && toBuilt(sizedLimit);
+    const equipment = built.groups(state.kvar);
+    const check = checkTarget(state.result, target);
+    const reasons = forced?.reasons ?? [];
+    const status = forced?.status ?? (check.met ? 'meets-target' : 'infeasible');
+    if (!forced && !check.met) {
+      if (checkBefore.leadingLines.length) reasons.push(infeasibleReason.alreadyLeading(checkBefore.leadingLines));
+      reasons.push(infeasibleReason.capacitorsCannotReach(check.shortfalls));
+    }
+    const star = state.result.loads.at(-1)?.starPointShift ?? null;
+    return {
+      arrangement,
+      method,
+      target,
+      status,
+      reasons,
+      frequencyHz: board.frequencyHz,
+      branches: branchSizings(
+        equipment,
+        state.board,
+        state.result,
+        limitKvar ? limitKvar.map((q, i) => susceptanceFromKvar(q, slots[i]!.vNominal)) : [],
+      ),
+      equipment,
+      totalKvarAtNominalV: state.kvar.reduce((a, b) => a + b, 0),
+      check,
+      lines: lineComparisons(start.result, state.result),
+      starPointShift: slots.some((s) => s.to === 'star') ? star : null,
+      solves: probe.solves() + (floating ? built.solves() : 0),
+    };
+  };
+
+  const perLine = target.definition === 'per-line';
+  const method = perLine ? sizingMethod.perLine : options.share === 'equal' ? sizingMethod.equal(target.definition) : sizingMethod.proportional(target.definition);
+  if (start.result.totals.kW <= 0) return finish(start, null, method, { status: 'infeasible', reasons: [infeasibleReason.exporting] });
+  // The limit (most compensation before a line passes its upper bound) is wanted
+  // even when nothing is needed: a light-load sizing caps the fixed part with it.
+  if (perLine) {
+    const limit = sizeForLineTargets(probe, limitBands, loop);
+    if (checkBefore.met) return finish(start, limit.kvar, method, { status: 'already-meets-target', reasons: [] });
+    const outcome = sizeForLineTargets(probe, lineBands(target, start, 'target'), loop);
+    const sized = finish(outcome.state, limit.kvar, method);
+    if (!outcome.converged && sized.status === 'infeasible')
+      return { ...sized, reasons: [...sized.reasons, infeasibleReason.notConverged(outcome.iterations, outcome.lastChange)] };
+    return sized;
+  }
+  const definition = target.definition as BoardTargetDefinition;
+  const direction = options.share === 'equal' ? zeros.map(() => 1) : sizeForLineTargets(probe, limitBands, loop).kvar;
+  const outcome = sizeAlongDirection(probe, direction, target, definition, limitBands.map((b) => b.low));
+  if (checkBefore.met) return finish(start, outcome.limitKvar, method, { status: 'already-meets-target', reasons: [] });
+  return finish(outcome.state, outcome.limitKvar, method);
+}

@@ -1,0 +1,62 @@
+/**
+ * zod issues → trivar `InputIssue`s (code, field path, received, expected),
+ * for the correction spec and the options of each public correction function.
+ * Mirrors the wording of board-file validation.
+ */
+import type { core, ZodType } from 'zod';
+import { formatPath, InputError, inputIssue, type InputIssue } from '../../errors.js';
+
+function expectedFor(issue: core.$ZodIssue): string {
+  switch (issue.code) {
+    case 'invalid_type':
+      return issue.expected === 'object' ? 'an object' : issue.expected === 'array' ? 'a list' : `a ${issue.expected}`;
+    case 'invalid_value':
+      return `one of ${issue.values.map((v) => JSON.stringify(v)).join(', ')}`;
+    case 'too_small':
+      if (issue.origin === 'array') return `at least ${String(issue.minimum)} item(s)`;
+      if (issue.origin === 'string') return 'a non-empty text';
+      return `a number ${issue.inclusive ? '>=' : '>'} ${String(issue.minimum)}`;
+    case 'too_big':
+      return `a number ${issue.inclusive ? '<=' : '<'} ${String(issue.maximum)}`;
+    case 'unrecognized_keys':
+      return 'only the documented keys';
+    default:
+      return issue.message;
+  }
+}
+
+function valueAt(root: unknown, path: readonly PropertyKey[]): unknown {
+  let node: unknown = root;
+  for (const key of path) {
+    if (node === null || typeof node !== 'object') return undefined;
+    node = (node as Record<PropertyKey, unknown>)[key];
+  }
+  return node;
+}
+
+export function inputIssuesFromZod(issues: readonly core.$ZodIssue[], root: unknown, prefix: readonly PropertyKey[] = []): InputIssue[] {
+  return issues.flatMap((issue) => {
+    const path = [...prefix, ...issue.path];
+    if (issue.code === 'unrecognized_keys')
+      return issue.keys.map((key) => inputIssue('unknown_key', formatPath([...path, key]), 'only the documented keys', key));
+    const received = valueAt(root, issue.path);
+    const code =
+      issue.code === 'invalid_type' && received === undefined
+        ? 'missing'
+        : issue.code === 'too_small' || issue.code === 'too_big'
+          ? 'out_of_range'
+          : issue.code;
+    return [inputIssue(code, formatPath(path), expectedFor(issue), received)];
+  });
+}
+
+/**
+ * Parses the options of a public function; throws one `InputError` naming
+ * every bad field.
+ * @throws {InputError}
+ */
+export function parseOptions<T>(schema: ZodType<T>, input: unknown, what: string): T {
+  const parsed = schema.safeParse(input ?? {});
+  if (!parsed.success) throw new InputError(inputIssuesFromZod(parsed.error.issues, input), `${what} are not valid`);
+  return parsed.data;
+}

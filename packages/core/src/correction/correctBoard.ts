@@ -1,0 +1,116 @@
+/**
+ * The whole correction study in one call: validate the spec, size the
+ * arrangement on the solved board, choose units, and re-solve the board with
+ * the chosen bank to verify it. Each step is also a public function of its own
+ * (`sizeStarBank` / `sizeDeltaBank` / `sizeBalancingCompensator`,
+ * `selectBankUnits`, `verifyCorrection`).
+ */
+import type { Board } from '../board/boardModel.js';
+import type { CorrectionSpec } from './correctionSpec.js';
+import { parseCorrectionSpec } from './validateCorrectionSpec.js';
+import { resolveTarget } from './correctionTarget.js';
+import { sizeStarBank } from './sizeStarBank.js';
+import { sizeDeltaBank } from './sizeDeltaBank.js';
+import { sizeBalancingCompensator } from './sizeBalancingCompensator.js';
+import { selectBankUnits } from './selectBankUnits.js';
+import { verifyCorrection, type VerifyCorrectionOptions } from './verifyCorrection.js';
+import { scaleBoardLoads } from './scaleBoardLoads.js';
+import type { BankSizing, CompensatorSizing, CorrectionReport, CorrectionStatus, CorrectionWarning, SizedEquipment } from './correctionResult.js';
+import { ARRANGEMENT_NAMES, CORRECTION_CAUTIONS, infeasibleReason, reportSummary, warningText } from './correctionWording.js';
+import { definedOnly } from './_internal/optionSchemas.js';
+
+function sizeArrangement(board: Board, spec: CorrectionSpec): BankSizing | CompensatorSizing {
+  switch (spec.arrangement) {
+    case 'star-bank':
+      return sizeStarBank(board, definedOnly({ target: spec.target, starPoint: spec.starPoint, share: spec.share }));
+    case 'delta-bank':
+      return sizeDeltaBank(board, definedOnly({ target: spec.target, share: spec.share }));
+    case 'balancing-compensator':
+      return sizeBalancingCompensator(board, definedOnly({ target: spec.target, branches: spec.compensator?.branches, weights: spec.compensator?.weights }));
+  }
+}
+
+/** What gets built: a bank's sizing, or a compensator's capacitor-only solution. */
+const buildable = (sizing: BankSizing | CompensatorSizing): SizedEquipment => (sizing.arrangement === 'balancing-compensator' ? sizing.capacitorOnly : sizing);
+
+/**
+ * Sizes, selects and verifies power-factor correction for a board.
+ * @param board a normalised board (`normaliseBoard(parseBoard(file))`)
+ * @param spec the study, validated here (see `correctionSpecSchema`)
+ * @returns a JSON-serialisable report: status and reasons, the continuous
+ *   sizing, the chosen units, the verified before/after results (with the
+ *   corrected `Board`), warnings and cautions
+ * @throws {InputError} for a spec that is not valid for the board (each issue names its field path)
+ * @throws {NumericalError} if a solve fails
+ * @example
+ * const report = correctBoard(board, { arrangement: 'star-bank', target: { pf: 0.95 }, lightLoad: { fraction: 0.3 } });
+ * report.status //=> 'meets-target'
+ * report.verification.board // the corrected board, for another simulator
+ */
+export function correctBoard(board: Board, spec: unknown): CorrectionReport {
+  const parsed = parseCorrectionSpec(spec, board);
+  const compensator = parsed.arrangement === 'balancing-compensator';
+  const target = resolveTarget(parsed.target, board, compensator);
+  const sizing = sizeArrangement(board, parsed);
+  const sized = buildable(sizing);
+  const needsUnits = sizing.status !== 'already-meets-target' && sized.branches.some((b) => b.element === 'capacitor');
+  const lightSized = parsed.lightLoad && needsUnits ? buildable(sizeArrangement(scaleBoardLoads(board, parsed.lightLoad), parsed)) : undefined;
+  const selection = needsUnits
+    ? selectBankUnits(
+        sized,
+        definedOnly({
+          catalogue: parsed.catalogue,
+          pattern: parsed.bank?.pattern,
+          maxUnitsPerBranch: parsed.bank?.maxUnitsPerBranch,
+          capacitanceTolerance: parsed.capacitanceTolerance,
+          voltageMarginPercent: parsed.voltageMarginPercent,
+          lightLoad: lightSized,
+        }),
+      )
+    : null;
+  const verifyOptions = (equipment: VerifyCorrectionOptions['equipment']): VerifyCorrectionOptions =>
+    definedOnly({
+      equipment,
+      target: parsed.target,
+      arrangement: parsed.arrangement,
+      lightLoad: parsed.lightLoad,
+      capacitanceTolerance: parsed.capacitanceTolerance,
+      voltageRiseLimitPercent: parsed.voltageRiseLimitPercent,
+    });
+  const recommended = sizing.status === 'already-meets-target' ? [] : (selection?.equipment ?? sized.equipment);
+  const verification = verifyCorrection(board, verifyOptions(recommended));
+  const idealVerification = sizing.arrangement === 'balancing-compensator' ? verifyCorrection(board, verifyOptions(sizing.ideal.equipment)) : null;
+
+  let status: CorrectionStatus;
+  const reasons = [...sizing.reasons];
+  if (sizing.status === 'already-meets-target') status = 'already-meets-target';
+  else if (sizing.status === 'infeasible') status = 'infeasible';
+  else if (!verification.check.met) {
+    status = 'misses-target-with-available-units';
+    reasons.push(infeasibleReason.unitsMissTarget(verification.check.shortfalls));
+  } else if (!verification.tolerance.low.check.met || verification.tolerance.high.check.leadingLines.length > 0)
+    status = 'meets-target-at-nominal-capacitance';
+  else status = 'meets-target';
+
+  const warnings: CorrectionWarning[] = [
+    ...(status === 'already-meets-target' ? [{ code: 'nothing-to-do', message: warningText.alreadyMet, path: 'target', value: null, threshold: null }] : []),
+    ...(sizing.arrangement === 'balancing-compensator' ? sizing.warnings : []),
+    ...(selection?.warnings ?? []),
+    ...verification.warnings,
+  ];
+  const what = ARRANGEMENT_NAMES[parsed.arrangement];
+  const installed = selection?.installedKvar ?? 0;
+  return {
+    arrangement: parsed.arrangement,
+    status,
+    summary: status === 'already-meets-target' ? reportSummary[status](what) : reportSummary[status](what, installed),
+    reasons,
+    target,
+    sizing,
+    selection,
+    verification,
+    idealVerification,
+    warnings,
+    cautions: CORRECTION_CAUTIONS,
+  };
+}

@@ -1,0 +1,284 @@
+/**
+ * What the correction study returns: plain JSON-serialisable data, the same
+ * for the library and a CLI's `--json`. Reactive values follow the compensator
+ * convention of the methods notes: kvar > 0 is capacitive, < 0 inductive;
+ * susceptance B > 0 is a capacitor. Line powers keep the load convention
+ * (Q > 0 lagging).
+ */
+import type { Phasor } from '../complex.js';
+import type { Board, PhaseId } from '../board/boardModel.js';
+import type { BoardResult, PowerFactorSense } from '../analysis/boardResult.js';
+import type { Arrangement, StepPattern } from './correctionSpec.js';
+import type { EquipmentGroup } from './equipment.js';
+import type { ResolvedTarget, TargetCheck } from './correctionTarget.js';
+
+export interface CorrectionWarning {
+  readonly code: string;
+  readonly message: string;
+  /** Input field the warning is about (`catalogue[2].ratedV`), or null. */
+  readonly path: string | null;
+  readonly value: number | null;
+  readonly threshold: number | null;
+}
+
+/** One element of a bank or compensator, as sized or as built. */
+export interface BranchSizing {
+  /** `A-N`, `A-B`, `A-star`... */
+  readonly branch: string;
+  readonly element: 'capacitor' | 'reactor' | 'none';
+  readonly susceptanceS: number;
+  /** Output at the nominal element voltage, kvar (+ capacitive, − inductive). */
+  readonly kvarAtNominalV: number;
+  /** Solved voltage across the element with the equipment in place, V. */
+  readonly appliedV: number;
+  /** Output at the solved voltage, kvar (+ capacitive, − inductive). */
+  readonly kvarAtAppliedV: number;
+  readonly currentA: number;
+  readonly capacitanceUF: number | null;
+  readonly inductanceMH: number | null;
+  /**
+   * The most this branch can take before a line passes its upper bound
+   * (leads, or goes past the upper lagging PF), S — the top of the window units
+   * are chosen in. Null where it is not computed.
+   */
+  readonly limitSusceptanceS: number | null;
+}
+
+/** A line's current split into the part in phase with its voltage and the part in quadrature. */
+export interface LineComparison {
+  readonly phase: PhaseId;
+  readonly currentA: BeforeAfter;
+  /** P/|V|: a delta branch moves active current between its two lines. */
+  readonly activeCurrentA: BeforeAfter;
+  /** Q/|V| (+ lagging). */
+  readonly reactiveCurrentA: BeforeAfter;
+  readonly pf: BeforeAfter;
+  readonly sense: { readonly before: PowerFactorSense; readonly after: PowerFactorSense };
+  readonly voltageDropPercent: BeforeAfter;
+}
+
+export interface BeforeAfter {
+  readonly before: number;
+  readonly after: number;
+  /** after − before */
+  readonly change: number;
+}
+
+export interface SizedEquipment {
+  readonly frequencyHz: number;
+  /** In the order of the equipment's branches. */
+  readonly branches: readonly BranchSizing[];
+  readonly equipment: readonly EquipmentGroup[];
+}
+
+export type SizingStatus = 'meets-target' | 'already-meets-target' | 'infeasible';
+
+export interface BankSizing extends SizedEquipment {
+  readonly arrangement: 'star-bank' | 'delta-bank';
+  /** How the bank was sized, in words. */
+  readonly method: string;
+  readonly target: ResolvedTarget;
+  readonly status: SizingStatus;
+  /** Why it is infeasible (empty otherwise). */
+  readonly reasons: readonly string[];
+  readonly totalKvarAtNominalV: number;
+  /** The corrected board judged against the target. */
+  readonly check: TargetCheck;
+  readonly lines: readonly LineComparison[];
+  /** Floating star point of the bank to the centroid of the line voltages, V; null when tied to the neutral. */
+  readonly starPointShift: Phasor | null;
+  /** Board solves the sizing used. */
+  readonly solves: number;
+}
+
+export interface CompensatorResidual {
+  /** |I2|/|I1| after, %. */
+  readonly negativeSequenceCurrentPercent: number;
+  /** |I0|/|I1| after, %. */
+  readonly zeroSequenceCurrentPercent: number;
+  readonly neutralCurrentA: number | null;
+  readonly positiveSequencePf: number | null;
+  readonly positiveSequenceKvar: number | null;
+  readonly effectivePf: number | null;
+  readonly leadingLines: readonly PhaseId[];
+}
+
+export interface CompensatorSolution extends SizedEquipment {
+  readonly kind: 'ideal' | 'capacitor-only';
+  /** Branches that need a reactor (always empty for capacitor-only). */
+  readonly reactorBranches: readonly string[];
+  /** True when the solution balances exactly and meets Q1 (objective ≈ 0). */
+  readonly exact: boolean;
+  /** Value of the weighted objective, per unit (0 for an exact solution). */
+  readonly objective: number;
+  readonly residual: CompensatorResidual;
+  readonly check: TargetCheck;
+  readonly lines: readonly LineComparison[];
+}
+
+export interface CompensatorSizing {
+  readonly arrangement: 'balancing-compensator';
+  readonly branchesUsed: 'delta' | 'delta-and-star';
+  readonly target: ResolvedTarget;
+  /** Positive-sequence reactive power aimed at, kvar (load convention, + lagging). */
+  readonly q1TargetKvar: number;
+  /** What the capacitor-only solution minimises, in words. */
+  readonly objectiveStatement: string;
+  readonly weights: { readonly negativeSequence: number; readonly zeroSequence: number; readonly reactive: number };
+  readonly ideal: CompensatorSolution;
+  readonly capacitorOnly: CompensatorSolution;
+  readonly status: SizingStatus;
+  readonly reasons: readonly string[];
+  readonly warnings: readonly CorrectionWarning[];
+  readonly solves: number;
+}
+
+export interface SelectedUnit {
+  readonly name: string;
+  readonly ratedKvar: number;
+  readonly ratedV: number;
+  readonly ratedHz: number;
+  /** `typical`: from the built-in list of typical ratings, not a vendor's catalogue. */
+  readonly source: 'catalogue' | 'typical';
+  /** Index in the user catalogue, or null for a typical unit. */
+  readonly catalogueIndex: number | null;
+  readonly capacitanceUF: number;
+  /** Output of one unit at the applied voltage and the board frequency, kvar. */
+  readonly outputKvar: number;
+}
+
+export interface BranchSelection {
+  readonly branch: string;
+  /** Null when the branch needs no capacitor (or is a reactor). */
+  readonly unit: SelectedUnit | null;
+  /** Units permanently connected. */
+  readonly fixedUnits: number;
+  /** Units in each switched step, in pattern order. */
+  readonly stepUnits: readonly number[];
+  /** Which steps are on at the design load. */
+  readonly stepsOnAtDesign: readonly boolean[];
+  readonly installedUnits: number;
+  /** Sum of the nameplate ratings, kvar. */
+  readonly installedKvar: number;
+  /** The sizing's requirement, µF (nominal capacitance). */
+  readonly requiredCapacitanceUF: number;
+  /** What the design state must reach so the target holds at the low tolerance, µF. */
+  readonly minimumCapacitanceUF: number;
+  /** Most the design state may have so no line leads at the high tolerance, µF; null if not known. */
+  readonly maximumCapacitanceUF: number | null;
+  readonly fixedCapacitanceUF: number;
+  readonly designCapacitanceUF: number;
+  /** The highest voltage the branch sees, V, and what the unit's rating must cover (with margin). */
+  readonly highestVoltageV: number;
+  readonly requiredRatedV: number;
+  readonly designKvarAtAppliedV: number;
+  readonly designCurrentA: number;
+  /** False when no combination met both window ends (see warnings). */
+  readonly withinWindow: boolean;
+}
+
+export interface BankSelection {
+  readonly frequencyHz: number;
+  /** The bank as chosen: design-state and fixed-part susceptance per branch. */
+  readonly equipment: readonly EquipmentGroup[];
+  readonly catalogue: 'user' | 'typical';
+  readonly catalogueNote: string;
+  readonly pattern: StepPattern;
+  readonly capacitanceTolerance: { readonly minusPercent: number; readonly plusPercent: number };
+  readonly voltageMarginPercent: number;
+  readonly selections: readonly BranchSelection[];
+  readonly installedKvar: number;
+  readonly installedUnits: number;
+  readonly warnings: readonly CorrectionWarning[];
+}
+
+export interface ToleranceCase {
+  readonly capacitanceFactor: number;
+  readonly check: TargetCheck;
+}
+
+export interface VoltageRise {
+  /** Net capacitive output considered, kvar. */
+  readonly capacitorKvar: number;
+  /** Short-circuit power at the board from the source and feeder impedance, kVA; null on an ideal source. */
+  readonly shortCircuitKVA: number | null;
+  /** ΔV/V ≈ Qc/S_sc, %; null on an ideal source. */
+  readonly estimatePercent: number | null;
+  /** Largest rise of a line-to-neutral voltage magnitude in the solved board, % of nominal. */
+  readonly solvedPercent: number;
+  readonly limitPercent: number;
+  readonly flagged: boolean;
+}
+
+export interface LightLoadCheck {
+  readonly fraction: number;
+  readonly perLoad: Readonly<Record<string, number>>;
+  /** Output of the fixed part at its applied voltage, kvar. */
+  readonly fixedKvar: number;
+  /** Lines at light load with only the fixed part connected, at the high capacitance tolerance. */
+  readonly lines: readonly { readonly phase: PhaseId; readonly pf: number; readonly sense: PowerFactorSense }[];
+  readonly leadingLines: readonly PhaseId[];
+  readonly ok: boolean;
+  readonly voltageRise: VoltageRise;
+  readonly after: BoardResult;
+}
+
+export interface CorrectionVerification {
+  readonly equipment: readonly EquipmentGroup[];
+  /** The corrected board (design state, nominal capacitance), ready to solve again or to simulate elsewhere. */
+  readonly board: Board;
+  readonly target: ResolvedTarget;
+  readonly before: BoardResult;
+  readonly after: BoardResult;
+  readonly check: TargetCheck;
+  readonly checkBefore: TargetCheck;
+  readonly branches: readonly BranchSizing[];
+  readonly lines: readonly LineComparison[];
+  readonly powerFactor: {
+    readonly effective: BeforeAfter | null;
+    readonly vector: BeforeAfter;
+    readonly arithmetic: BeforeAfter;
+    readonly positiveSequence: BeforeAfter | null;
+  };
+  readonly neutralCurrentA: BeforeAfter | null;
+  readonly unbalance: {
+    readonly negativeSequenceCurrentPercent: BeforeAfter;
+    readonly zeroSequenceCurrentPercent: BeforeAfter;
+    readonly voltageFactorPercent: BeforeAfter;
+  } | null;
+  /** Apparent power no longer drawn (before − after), kVA. */
+  readonly releasedKVA: { readonly effective: number | null; readonly vector: number; readonly arithmetic: number; readonly source: number };
+  /** Loss reduction in source and feeder (before − after), kW. */
+  readonly lossReductionKW: number;
+  readonly tolerance: { readonly low: ToleranceCase; readonly high: ToleranceCase };
+  readonly voltageRise: VoltageRise;
+  /** Parallel resonance with the supply, h_r = √(S_sc/Qc); null on an ideal source or without capacitors. */
+  readonly resonanceOrder: number | null;
+  readonly lightLoad: LightLoadCheck | null;
+  readonly warnings: readonly CorrectionWarning[];
+}
+
+export type CorrectionStatus =
+  | 'meets-target'
+  | 'meets-target-at-nominal-capacitance'
+  | 'already-meets-target'
+  | 'misses-target-with-available-units'
+  | 'infeasible';
+
+export interface CorrectionReport {
+  readonly arrangement: Arrangement;
+  readonly status: CorrectionStatus;
+  /** One line for people. */
+  readonly summary: string;
+  readonly reasons: readonly string[];
+  readonly target: ResolvedTarget;
+  readonly sizing: BankSizing | CompensatorSizing;
+  /** Null when nothing needs to be built. */
+  readonly selection: BankSelection | null;
+  /** The recommended design (chosen units, or the continuous sizing when none were chosen), re-solved. */
+  readonly verification: CorrectionVerification;
+  /** Balancing compensator only: the ideal solution (with reactors), re-solved. */
+  readonly idealVerification: CorrectionVerification | null;
+  readonly warnings: readonly CorrectionWarning[];
+  readonly cautions: readonly string[];
+}

@@ -1,0 +1,141 @@
+/**
+ * The power-factor target, resolved against a board, and the one check of a
+ * solved board against it (used by sizing, verification and the tests alike).
+ *
+ * Per line the target is a band on τ = Q/|P| (the signed tan φ of the line's
+ * displacement angle, Q > 0 lagging): τ ≤ tan(acos pf) meets the minimum;
+ * τ ≥ τ_low keeps the line from leading (τ_low = 0), from leading beyond the
+ * allowed leading PF (τ_low < 0), or from passing the upper lagging bound (τ_low > 0).
+ */
+import type { Board, PhaseId } from '../board/boardModel.js';
+import type { BoardResult, PowerFactorSense } from '../analysis/boardResult.js';
+import type { TargetDefinition, TargetSpec } from './correctionSpec.js';
+import { CORRECTION_DEFAULTS } from './correctionDefaults.js';
+import { TARGET_STATEMENTS, targetShortfall } from './correctionWording.js';
+
+export type BoardTargetDefinition = Exclude<TargetDefinition, 'per-line'>;
+
+export interface ResolvedTarget {
+  readonly definition: TargetDefinition;
+  /** The definition in words, for reports. */
+  readonly statement: string;
+  /** Board-wide minimum PF (for the per-line definition: the default for every line). */
+  readonly pf: number;
+  /** Minimum PF of each line; only with the per-line definition, otherwise empty. */
+  readonly lines: readonly { readonly phase: PhaseId; readonly minPf: number }[];
+  readonly leading: 'never' | 'allowed';
+  readonly minLeadingPf: number | null;
+  readonly maxLaggingPf: number | null;
+}
+
+/** Relative slack when judging a computed figure against a bound (the sizing drives figures onto their bounds). */
+export const TARGET_SLACK = 1e-9;
+
+const tanOfPf = (pf: number): number => Math.sqrt(Math.max(0, 1 - pf * pf)) / pf;
+
+/** Fills the defaults of a target for a board and an arrangement (a compensator defaults to PF1+). */
+export function resolveTarget(spec: TargetSpec | undefined, board: Board, compensator = false): ResolvedTarget {
+  const definition: TargetDefinition = spec?.definition ?? (compensator ? CORRECTION_DEFAULTS.compensatorDefinition : CORRECTION_DEFAULTS.definition);
+  const pf = spec?.pf ?? CORRECTION_DEFAULTS.pf;
+  const leading = spec?.leading ?? CORRECTION_DEFAULTS.leading;
+  const lines = definition === 'per-line' ? board.phases.map((phase) => ({ phase, minPf: spec?.perPhase?.[phase] ?? pf })) : [];
+  return {
+    definition,
+    statement: TARGET_STATEMENTS[definition],
+    pf,
+    lines,
+    leading,
+    minLeadingPf: leading === 'allowed' ? (spec?.minLeadingPf ?? pf) : null,
+    maxLaggingPf: spec?.maxLaggingPf ?? null,
+  };
+}
+
+/** Bounds on τ = Q/|P| for one line (index into `board.phases`). `high` is +∞ when the target is board-wide. */
+export function lineTanBounds(target: ResolvedTarget, lineIndex: number): { high: number; low: number } {
+  const line = target.lines[lineIndex];
+  const high = line ? tanOfPf(line.minPf) : Infinity;
+  let low = 0;
+  if (target.leading === 'allowed') low = -tanOfPf(target.minLeadingPf ?? target.pf);
+  if (target.maxLaggingPf !== null && target.definition === 'per-line') low = tanOfPf(target.maxLaggingPf);
+  return { high, low };
+}
+
+/** The board-wide PF by a named definition (signed like P), or null where that definition does not exist. */
+export function boardPowerFactor(result: BoardResult, definition: BoardTargetDefinition): number | null {
+  const pf = result.powerFactor;
+  switch (definition) {
+    case 'effective':
+      return pf.effective?.pf ?? null;
+    case 'vector':
+      return pf.vector.pf;
+    case 'arithmetic':
+      return pf.arithmetic.pf;
+    case 'positive-sequence':
+      return pf.positiveSequence?.pf ?? null;
+  }
+}
+
+export interface LineTargetCheck {
+  readonly phase: PhaseId;
+  readonly pf: number;
+  readonly sense: PowerFactorSense;
+  /** False for a line carrying (almost) no current, which is not judged. */
+  readonly loaded: boolean;
+  /** Minimum PF this line must reach; null with a board-wide target. */
+  readonly minPf: number | null;
+  readonly meetsMinimum: boolean;
+  /** Not leading (beyond what is allowed) and not past the upper lagging bound. */
+  readonly withinUpperBound: boolean;
+}
+
+export interface TargetCheck {
+  readonly met: boolean;
+  readonly lines: readonly LineTargetCheck[];
+  /** The board-wide figure; null with the per-line definition. */
+  readonly board: {
+    readonly definition: BoardTargetDefinition;
+    readonly pf: number | null;
+    readonly minPf: number;
+    readonly maxPf: number | null;
+    readonly met: boolean;
+  } | null;
+  /** Lines leading more than the target allows. */
+  readonly leadingLines: readonly PhaseId[];
+  /** One sentence per unmet condition. */
+  readonly shortfalls: readonly string[];
+}
+
+/** Lines whose apparent power is below this fraction of the largest are not judged. */
+const UNLOADED_FRACTION = 1e-6;
+
+/** Judges a solved board against a target. */
+export function checkTarget(result: BoardResult, target: ResolvedTarget): TargetCheck {
+  const largest = Math.max(...result.phases.map((p) => p.kVA), 0);
+  const shortfalls: string[] = [];
+  const leadingLines: PhaseId[] = [];
+  const lines = result.phases.map((p, k): LineTargetCheck => {
+    const loaded = p.kVA > UNLOADED_FRACTION * largest && p.kVA > 1e-9;
+    const { high, low } = lineTanBounds(target, k);
+    const slack = TARGET_SLACK * p.kVA;
+    const meetsMinimum = !loaded || high === Infinity || p.kvar <= high * Math.abs(p.kW) + slack;
+    const withinUpperBound = !loaded || p.kvar >= low * Math.abs(p.kW) - slack;
+    const minPf = target.lines[k]?.minPf ?? null;
+    if (!meetsMinimum) shortfalls.push(targetShortfall.lineBelow(p.phase, p.pf, p.sense, minPf ?? target.pf));
+    if (!withinUpperBound) {
+      if (p.kvar < 0) leadingLines.push(p.phase);
+      shortfalls.push(targetShortfall.lineBeyond(p.phase, p.pf, p.sense, target));
+    }
+    return { phase: p.phase, pf: p.pf, sense: p.sense, loaded, minPf, meetsMinimum, withinUpperBound };
+  });
+  let board: TargetCheck['board'] = null;
+  if (target.definition !== 'per-line') {
+    const pf = boardPowerFactor(result, target.definition);
+    const reached = pf !== null && pf >= target.pf - TARGET_SLACK;
+    const notPast = pf === null || target.maxLaggingPf === null || pf <= target.maxLaggingPf + TARGET_SLACK;
+    if (!reached) shortfalls.push(targetShortfall.boardBelow(target, pf));
+    if (!notPast) shortfalls.push(targetShortfall.boardBeyond(target, pf));
+    board = { definition: target.definition, pf, minPf: target.pf, maxPf: target.maxLaggingPf, met: reached && notPast };
+  }
+  const met = lines.every((l) => l.meetsMinimum && l.withinUpperBound) && (board?.met ?? true);
+  return { met, lines, board, leadingLines, shortfalls };
+}

@@ -1,0 +1,124 @@
+/**
+ * Every sentence the correction study writes: definitions, shortfalls,
+ * reasons, warnings and cautions. Plain text; the CLI decides how to show it.
+ */
+import type { PhaseId } from '../board/boardModel.js';
+import type { PowerFactorSense } from '../analysis/boardResult.js';
+import type { TargetDefinition } from './correctionSpec.js';
+
+interface TargetWords {
+  readonly definition: TargetDefinition;
+  readonly pf: number;
+  readonly leading: 'never' | 'allowed';
+  readonly minLeadingPf: number | null;
+  readonly maxLaggingPf: number | null;
+}
+
+const f3 = (x: number) => x.toFixed(3);
+const f1 = (x: number) => x.toFixed(1);
+const pfText = (pf: number, sense: PowerFactorSense) => (sense === 'unity' ? '1.000' : `${f3(pf)} ${sense}`);
+
+export const TARGET_STATEMENTS: Record<TargetDefinition, string> = {
+  'per-line':
+    'displacement power factor of every line at the board, P/|S| with S = V·I* per line (voltage to the neutral bar on a 4-wire board, to the virtual neutral on a 3-wire board)',
+  effective: 'IEEE Std 1459 effective power factor of the board, P/Se with Se = 3·Ve·Ie (Buchholz–Goodhue)',
+  vector: 'vector power factor of the board, P/|ΣS| over the lines (what a kWh/kvarh meter averages to)',
+  arithmetic: 'arithmetic power factor of the board, P/Σ|S| over the lines',
+  'positive-sequence': 'fundamental positive-sequence power factor of the board, P1+/S1+ (IEEE Std 1459)',
+};
+
+export const targetShortfall = {
+  lineBelow: (phase: PhaseId, pf: number, sense: PowerFactorSense, min: number) =>
+    `line ${phase} is at ${pfText(pf, sense)}, below the target ${f3(min)} lagging`,
+  lineBeyond: (phase: PhaseId, pf: number, sense: PowerFactorSense, t: TargetWords) =>
+    t.maxLaggingPf !== null && t.definition === 'per-line'
+      ? `line ${phase} is at ${pfText(pf, sense)}, past the upper bound ${f3(t.maxLaggingPf)} lagging`
+      : t.leading === 'never'
+        ? `line ${phase} is leading (${pfText(pf, sense)}) and leading is not allowed`
+        : `line ${phase} leads at ${pfText(pf, sense)}, below the lowest allowed leading PF ${f3(t.minLeadingPf ?? t.pf)}`,
+  boardBelow: (t: TargetWords, pf: number | null) =>
+    pf === null ? `the ${t.definition} power factor is not defined for this board` : `the board's ${t.definition} power factor is ${f3(pf)}, below the target ${f3(t.pf)}`,
+  boardBeyond: (t: TargetWords, pf: number | null) => `the board's ${t.definition} power factor ${f3(pf ?? 0)} is past the upper bound ${f3(t.maxLaggingPf ?? 1)}`,
+};
+
+export const infeasibleReason = {
+  alreadyLeading: (phases: readonly PhaseId[]) =>
+    `line${phases.length > 1 ? 's' : ''} ${phases.join(', ')} already lead${phases.length > 1 ? '' : 's'} before correction: capacitors cannot help there, a reactor would be needed`,
+  exporting: 'the board exports active power, so a power-factor target has no meaning for it',
+  capacitorsCannotReach: (shortfalls: readonly string[]) =>
+    `no capacitor-only bank of this arrangement meets the target without breaking a bound; the best reachable leaves: ${shortfalls.join('; ')}`,
+  notConverged: (iterations: number, change: number) =>
+    `the sizing did not settle in ${iterations} re-solves (last change ${change.toExponential(2)} of the board's apparent power)`,
+  needsReactors: (branches: readonly string[]) =>
+    `the ideal compensator needs reactors on ${branches.join(', ')}; the capacitor-only compensator is the best reachable without them`,
+  unitsMissTarget: (shortfalls: readonly string[]) => `with the units chosen the corrected board misses the target: ${shortfalls.join('; ')}`,
+};
+
+export const warningText = {
+  alreadyMet: 'the board already meets the target: nothing to add',
+  unitVoltageLow: (name: string, ratedV: number, neededV: number) =>
+    `unit "${name}" (rated ${f1(ratedV)} V) is not used: its rating is below the ${f1(neededV)} V it needs (highest applied voltage plus margin)`,
+  unitFrequency: (name: string, ratedHz: number, hz: number) =>
+    `unit "${name}" is rated for ${ratedHz} Hz and used at ${hz} Hz: its output and current scale by ${f3(hz / ratedHz)}`,
+  windowMissed: (branch: string) =>
+    `branch ${branch}: no combination of units guarantees the target at the lowest capacitance tolerance without exceeding the no-leading limit at the highest; the choice meets the target at nominal capacitance`,
+  toleranceLow: (shortfalls: readonly string[]) => `with capacitance at the low end of its tolerance the target is missed: ${shortfalls.join('; ')}`,
+  toleranceHigh: (phases: readonly PhaseId[]) => `with capacitance at the high end of its tolerance line${phases.length > 1 ? 's' : ''} ${phases.join(', ')} lead`,
+  lightLoadLeading: (phases: readonly PhaseId[]) =>
+    `at light load the fixed part makes line${phases.length > 1 ? 's' : ''} ${phases.join(', ')} lead (checked at the high end of the capacitance tolerance)`,
+  voltageRise: (what: string, percent: number, limit: number) => `${what} raises the board voltage by about ${percent.toFixed(2)} %, above the ${f1(limit)} % flag level`,
+  lowResonance: (order: number) =>
+    `the bank and the supply inductance resonate near harmonic order ${order.toFixed(1)}: with harmonic-producing loads on the board this needs a harmonic study and probably a detuned bank`,
+  unitUnderused: (branch: string, ratedV: number, appliedV: number, fraction: number) =>
+    `branch ${branch}: units rated ${f1(ratedV)} V used at ${f1(appliedV)} V give only ${(100 * fraction).toFixed(0)} % of their rating (square law); units rated nearer the applied voltage (still with the margin) would need less installed kvar`,
+  partialBalance: (negative: number, zero: number, reactors: readonly string[]) =>
+    `the capacitor-only compensator meets the power-factor target but balances only partly (|I2|/|I1| = ${negative.toFixed(1)} %, |I0|/|I1| = ${zero.toFixed(1)} %)${reactors.length ? `; full balance needs reactors on ${reactors.join(', ')}` : ''}`,
+  unitCount: (branch: string, max: number) => `branch ${branch}: the requirement needs more than ${max} units; the largest unit type was used anyway`,
+  reactorsNotSelected: 'reactors are given as continuous values only (kvar, mH); choosing reactor hardware is not part of this study',
+  idealSource: 'the source impedance is zero, so the steady voltage rise and the resonance order cannot be estimated',
+};
+
+/** Shown with every correction result. */
+export const CORRECTION_CAUTIONS: readonly string[] = [
+  'Capacitors hold their charge after they are switched off. Each unit needs a discharge device that is always connected (IEC 60831-1: down to 75 V or less within 3 minutes; NEC 460.6: 50 V or less within 1 minute); wait at least that long, prove the terminals dead, then short them together and to earth before touching.',
+  'Switching a capacitor step on draws a short, high inrush current, far higher when other steps are already energised: use contactors rated for capacitor duty with damping resistors or reactors, and let a step discharge before it is switched on again.',
+  'Adding capacitance moves the supply resonance down in frequency. This study does not check harmonics: check resonance and capacitor duty against the harmonic spectrum of the board separately before installing.',
+  'These figures come from the model you entered. Any bank or compensator must be designed to the local codes and checked by a licensed professional before it is installed.',
+];
+
+export const sizingMethod = {
+  perLine:
+    'least total kvar such that every line meets its target and none passes its upper bound: a linear programme in the branch ratings, re-linearised on the solved board until the ratings settle',
+  equal: (definition: string) =>
+    `equal kvar in every branch (one three-phase bank), the smallest that brings the board's ${definition} power factor to the target with no line passing its upper bound; the board is re-solved at every trial size`,
+  proportional: (definition: string) =>
+    `branch ratings in proportion to what each branch needs to bring the lines to their upper bound, scaled to the smallest total that brings the board's ${definition} power factor to the target; the board is re-solved at every trial size`,
+};
+
+export const compensatorWording = {
+  objective: (w: { negativeSequence: number; zeroSequence: number; reactive: number }, zero: boolean, ridge: number, leadingBound: boolean) =>
+    `minimise ${w.negativeSequence}·|I2|²${zero ? ` + ${w.zeroSequence}·|I0|²` : ''} + ${w.reactive}·(Q1 − Q1,target)², currents per unit of the uncorrected |I1| and Q per unit of 3·V·|I1|, plus ${ridge}·Σ(branch kvar per unit)² to pick the smallest bank among equals; subject to every branch being a capacitor (B ≥ 0)${leadingBound ? ' and no line passing its lower power-factor bound (leading)' : ''}. The currents are linear in the susceptances, so this is a convex QP, solved exactly at each re-linearisation of the solved board`,
+  leadingDropped: 'the capacitor-only compensator could not keep every line from leading while balancing; the leading bound was dropped for it and the result reports which lines lead',
+  notConverged: (kind: string, iterations: number) => `the ${kind} compensator did not settle in ${iterations} iterations`,
+};
+
+export const selectionWording = {
+  typicalNote:
+    'units from the built-in list of typical ratings (typical catalogue practice, not any vendor\'s range): check the real ratings, tolerance and discharge time of the units you buy',
+  userNote: 'units from the catalogue given',
+  noUnit: (branches: readonly string[], neededV: number) =>
+    `at least one unit rated ${neededV.toFixed(1)} V or more (the highest voltage across ${branches.join(', ')} plus the margin)`,
+};
+
+export const reportSummary = {
+  'meets-target': (what: string, kvar: number) => `${what}: ${kvar.toFixed(2)} kvar installed meets the target`,
+  'meets-target-at-nominal-capacitance': (what: string, kvar: number) =>
+    `${what}: ${kvar.toFixed(2)} kvar installed meets the target at nominal capacitance but not at every end of the tolerance`,
+  'already-meets-target': (what: string) => `${what}: the board already meets the target, nothing to add`,
+  'misses-target-with-available-units': (what: string, kvar: number) =>
+    `${what}: the best combination of the available units (${kvar.toFixed(2)} kvar) misses the target`,
+  infeasible: (what: string, kvar: number) =>
+    `${what}: the target cannot be met with capacitors in this arrangement; the best reachable uses ${kvar.toFixed(2)} kvar`,
+};
+
+export const ARRANGEMENT_NAMES = { 'star-bank': 'star bank', 'delta-bank': 'delta bank', 'balancing-compensator': 'balancing compensator' } as const;

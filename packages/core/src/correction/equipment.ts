@@ -1,0 +1,131 @@
+/**
+ * Correction equipment as plain data, and how it joins a board: each group
+ * (a star bank, a delta bank, the two halves of a compensator) becomes one
+ * added `BoardLoad` of constant-impedance branches, so the ordinary solver
+ * re-solves the corrected board.
+ */
+import type { Board, BoardLoad, PhaseId, Terminal } from '../board/boardModel.js';
+import type { ConnectionSpec } from '../board/boardSchema.js';
+
+/** Where a branch ends: a phase, the neutral bar, or the bank's own floating star point. */
+export type EquipmentTerminal = PhaseId | 'N' | 'star';
+
+/** Where one reactive element sits, before it has a value. */
+export interface BranchSlot {
+  /** `A-N`, `A-B`, `A-star`... */
+  readonly branch: string;
+  readonly from: PhaseId;
+  readonly to: EquipmentTerminal;
+  /** Nominal voltage across the element, V (line-to-neutral for star, line-to-line for delta). */
+  readonly vNominal: number;
+}
+
+export interface EquipmentBranch extends BranchSlot {
+  /** Susceptance with the bank in its design state, S: > 0 capacitor, < 0 reactor. */
+  readonly susceptanceS: number;
+  /** The part left connected at light load (the fixed part of a switched bank), S. */
+  readonly fixedSusceptanceS: number;
+}
+
+export interface EquipmentGroup {
+  readonly name: string;
+  readonly connection: ConnectionSpec;
+  readonly branches: readonly EquipmentBranch[];
+}
+
+/** One element per phase, to the neutral bar or to a floating star point. */
+export function starSlots(board: Board, starPoint: 'neutral' | 'floating'): BranchSlot[] {
+  const to: EquipmentTerminal = starPoint === 'neutral' ? 'N' : 'star';
+  return board.phases.map((p) => ({ branch: `${p}-${to === 'N' ? 'N' : 'star'}`, from: p, to, vNominal: board.nominalLineToNeutralV }));
+}
+
+/** One element per line pair, A-B, B-C, C-A. */
+export function deltaSlots(board: Board): BranchSlot[] {
+  const ll = board.nominalLineToLineV ?? board.nominalLineToNeutralV;
+  const pairs: [PhaseId, PhaseId][] = [
+    ['A', 'B'],
+    ['B', 'C'],
+    ['C', 'A'],
+  ];
+  return pairs.map(([from, to]) => ({ branch: `${from}-${to}`, from, to, vNominal: ll }));
+}
+
+/** Susceptance of an element that gives `kvar` at voltage `v` (+ capacitive). */
+export const susceptanceFromKvar = (kvar: number, v: number): number => (kvar * 1000) / (v * v);
+export const kvarFromSusceptance = (susceptanceS: number, v: number): number => (susceptanceS * v * v) / 1000;
+
+/**
+ * Groups slots and their susceptances the way they would be built: three
+ * star slots → one `ABC-star` group, three delta slots → one `ABC-delta` group
+ * (a compensator has both), anything else (split-phase, single-phase) → one
+ * group per branch. Branch order is kept.
+ */
+export function equipmentGroups(
+  name: string,
+  slots: readonly BranchSlot[],
+  susceptances: readonly number[],
+  fixedSusceptances: readonly number[] = susceptances,
+): EquipmentGroup[] {
+  const branches = slots.map((s, i): EquipmentBranch => ({ ...s, susceptanceS: susceptances[i]!, fixedSusceptanceS: fixedSusceptances[i]! }));
+  const isStar = (b: EquipmentBranch) => b.to === 'N' || b.to === 'star';
+  const star = branches.filter(isStar);
+  const delta = branches.filter((b) => !isStar(b));
+  const both = star.length > 0 && delta.length > 0;
+  const groupOf = (part: EquipmentBranch[], connection: ConnectionSpec, suffix: string): EquipmentGroup[] => {
+    if (part.length === 0) return [];
+    if (part.length === 3) return [{ name: both ? `${name} ${suffix}` : name, connection, branches: part }];
+    return part.map((b) => ({ name: `${name} ${b.branch}`, connection: `${b.from}-${b.to}` as ConnectionSpec, branches: [b] }));
+  };
+  const groups = [...groupOf(delta, 'ABC-delta', 'delta part'), ...groupOf(star, 'ABC-star', 'star part')];
+  const firstIndex = (g: EquipmentGroup) => branches.indexOf(g.branches[0]!);
+  return groups.sort((a, b) => firstIndex(a) - firstIndex(b));
+}
+
+export interface AddEquipmentOptions {
+  /**
+   * `design`: every branch at its design-state susceptance; `fixed`: only the
+   * fixed part (what stays on at light load).
+   * @defaultValue 'design'
+   */
+  readonly state?: 'design' | 'fixed';
+  /**
+   * Multiplies every capacitor's susceptance (reactors are left alone): 0.95
+   * and 1.10 model the capacitance tolerance.
+   * @defaultValue 1
+   */
+  readonly capacitanceFactor?: number;
+}
+
+/**
+ * The board with correction equipment added as loads of origin `added`; solve
+ * it with `solveBoardModel`, or hand it to an outside circuit simulator.
+ * @example
+ * const corrected = addCorrectionEquipment(board, report.verification.equipment);
+ * corrected.loads.at(-1)?.origin //=> 'added'
+ */
+export function addCorrectionEquipment(board: Board, groups: readonly EquipmentGroup[], options: AddEquipmentOptions = {}): Board {
+  const state = options.state ?? 'design';
+  const factor = options.capacitanceFactor ?? 1;
+  const added = groups.map((group, g): BoardLoad => {
+    const star: Terminal = `star:${board.loads.length + g}`;
+    return {
+      name: group.name,
+      connection: group.connection,
+      model: 'constant-impedance',
+      origin: 'added',
+      branches: group.branches.map((b) => {
+        const raw = state === 'design' ? b.susceptanceS : b.fixedSusceptanceS;
+        const susceptance = raw > 0 ? raw * factor : raw;
+        // An admittance jB draws S = V²·conj(jB) = −jB·V² (load convention).
+        return {
+          from: b.from,
+          to: b.to === 'star' ? star : b.to,
+          sNominal: { re: 0, im: -susceptance * b.vNominal * b.vNominal },
+          vNominal: b.vNominal,
+          zip: { z: 1, i: 0, p: 0 },
+        };
+      }),
+    };
+  });
+  return { ...board, loads: [...board.loads, ...added] };
+}

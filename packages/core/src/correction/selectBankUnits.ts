@@ -1,0 +1,307 @@
+/**
+ * From continuous ratings to hardware: each capacitor branch becomes a fixed
+ * part plus switched steps built from catalogue units.
+ *
+ * Work is done in capacitance, which does not depend on the voltage: a unit
+ * rated Q_r at V_r, f_r has C = Q_r/(2π·f_r·V_r²) and gives ω·C·V² where it is
+ * used. Per branch, with the sizing's requirement C_req:
+ * - rated voltage ≥ highest voltage across the branch × (1 + margin);
+ * - the design state (fixed part + the steps switched on at the design load)
+ *   reaches C_req/(1 − tol⁻), so the target holds with the lowest capacitance,
+ *   and if possible stays ≤ C_limit/(1 + tol⁺), so no line leads with the highest;
+ * - the fixed part stays ≤ the light-load limit/(1 + tol⁺) (no fixed part
+ *   without a light-load condition);
+ * - among those, the least installed nameplate kvar — counting anything within
+ *   5 % of it as equal and then taking the fewest units, then the finest step.
+ *   All units of a branch are of one type.
+ */
+import { z } from 'zod';
+import { InputError, inputIssue } from '../errors.js';
+import { capacitorUnitSchema, STEP_PATTERNS, type CapacitanceToleranceSpec, type CapacitorUnitSpec, type StepPattern } from './correctionSpec.js';
+import { CORRECTION_DEFAULTS } from './correctionDefaults.js';
+import { capacitorOutput, unitCapacitanceF } from './capacitorOutput.js';
+import { TYPICAL_CAPACITOR_UNITS } from './typicalCapacitorUnits.js';
+import type { EquipmentBranch, EquipmentGroup } from './equipment.js';
+import type { BankSelection, BranchSelection, BranchSizing, CorrectionWarning, SizedEquipment } from './correctionResult.js';
+import { selectionWording, warningText } from './correctionWording.js';
+import { parseOptions } from './_internal/zodIssues.js';
+
+export interface SelectBankUnitsOptions {
+  /** Units to build from. @defaultValue the built-in typical ratings at the board frequency (`TYPICAL_CAPACITOR_UNITS`) */
+  readonly catalogue?: readonly CapacitorUnitSpec[];
+  /** Switched-step ratios, or `fixed` for no switched steps. @defaultValue '1:2:4' */
+  readonly pattern?: StepPattern;
+  /** Most units in one branch. @defaultValue 24 */
+  readonly maxUnitsPerBranch?: number;
+  /** Capacitance tolerance, %. @defaultValue `{ minusPercent: 5, plusPercent: 10 }` (IEC 60831-1, from memory) */
+  readonly capacitanceTolerance?: CapacitanceToleranceSpec;
+  /** Rated voltage must exceed the highest applied voltage by this, %. @defaultValue 10 */
+  readonly voltageMarginPercent?: number;
+  /**
+   * The same sizing run on the light-load board. Its limit (or value) per
+   * branch caps the fixed part, and its voltages join the rating check.
+   * @defaultValue none — no fixed part
+   */
+  readonly lightLoad?: SizedEquipment;
+}
+
+const selectOptionsSchema = z.strictObject({
+  catalogue: z.array(capacitorUnitSchema).min(1).optional(),
+  pattern: z.enum(STEP_PATTERNS).optional(),
+  maxUnitsPerBranch: z.int().min(1).max(200).optional(),
+  capacitanceTolerance: z.strictObject({ minusPercent: z.number().min(0).max(50).optional(), plusPercent: z.number().min(0).max(50).optional() }).optional(),
+  voltageMarginPercent: z.number().min(0).max(100).optional(),
+  lightLoad: z.custom<SizedEquipment>((v) => typeof v === 'object' && v !== null && Array.isArray((v as SizedEquipment).branches)).optional(),
+});
+
+const MULTIPLIERS: Record<StepPattern, readonly number[]> = { fixed: [], '1:1:1': [1, 1, 1], '1:2:2': [1, 2, 2], '1:2:4': [1, 2, 4] };
+
+interface ResolvedSelectOptions {
+  readonly units: readonly { readonly unit: CapacitorUnitSpec; readonly index: number | null }[];
+  readonly typical: boolean;
+  readonly pattern: StepPattern;
+  readonly maxUnits: number;
+  readonly minus: number;
+  readonly plus: number;
+  readonly margin: number;
+  readonly lightLoad: SizedEquipment | null;
+}
+
+function resolveSelectOptions(sized: SizedEquipment, input: SelectBankUnitsOptions | undefined): ResolvedSelectOptions {
+  const options = parseOptions(selectOptionsSchema, input, 'selectBankUnits options');
+  const typical = options.catalogue === undefined;
+  const units = typical
+    ? TYPICAL_CAPACITOR_UNITS.filter((u) => u.ratedHz === sized.frequencyHz).map((unit) => ({ unit, index: null }))
+    : options.catalogue!.map((unit, index) => ({ unit, index }));
+  const tol = options.capacitanceTolerance ?? {};
+  return {
+    units,
+    typical,
+    pattern: options.pattern ?? CORRECTION_DEFAULTS.pattern,
+    maxUnits: options.maxUnitsPerBranch ?? CORRECTION_DEFAULTS.maxUnitsPerBranch,
+    minus: (tol.minusPercent ?? CORRECTION_DEFAULTS.capacitanceTolerance.minusPercent) / 100,
+    plus: (tol.plusPercent ?? CORRECTION_DEFAULTS.capacitanceTolerance.plusPercent) / 100,
+    margin: (options.voltageMarginPercent ?? CORRECTION_DEFAULTS.voltageMarginPercent) / 100,
+    lightLoad: options.lightLoad ?? null,
+  };
+}
+
+interface Candidate {
+  readonly unit: CapacitorUnitSpec;
+  readonly index: number | null;
+  readonly fixedUnits: number;
+  readonly stepBase: number;
+  readonly stepsOn: readonly boolean[];
+  readonly designF: number;
+  readonly installedKvar: number;
+  readonly units: number;
+  readonly withinWindow: boolean;
+}
+
+/** Smallest set of steps (by capacitance) that lifts `fixedF` to `neededF`; all steps when even that falls short. */
+function stepsToSwitch(multipliers: readonly number[], stepF: number, fixedF: number, neededF: number): boolean[] {
+  let best: boolean[] = multipliers.map(() => true);
+  let bestSum = Infinity;
+  for (let mask = 0; mask < 1 << multipliers.length; mask++) {
+    const on = multipliers.map((_, i) => (mask & (1 << i)) !== 0);
+    const sum = multipliers.reduce((s, m, i) => s + (on[i] ? m : 0), 0);
+    if (fixedF + sum * stepF >= neededF * (1 - 1e-12) && sum < bestSum) {
+      best = on;
+      bestSum = sum;
+    }
+  }
+  return best;
+}
+
+/** Installed kvar within the slack of the least counts as equal; then fewer units, then the finer step. */
+function pickBest(candidates: readonly Candidate[]): Candidate | null {
+  if (!candidates.length) return null;
+  const inWindow = candidates.filter((c) => c.withinWindow);
+  const pool = inWindow.length ? inWindow : candidates;
+  const least = Math.min(...pool.map((c) => c.installedKvar));
+  const near = pool.filter((c) => c.installedKvar <= least * (1 + CORRECTION_DEFAULTS.selectionKvarSlackPercent / 100) + 1e-12);
+  const stepF = (c: Candidate) => c.stepBase * unitCapacitanceF(c.unit);
+  return near.reduce((best, c) => {
+    if (c.units !== best.units) return c.units < best.units ? c : best;
+    if (Math.abs(c.installedKvar - best.installedKvar) > 1e-9 * least) return c.installedKvar < best.installedKvar ? c : best;
+    return stepF(c) < stepF(best) ? c : best;
+  });
+}
+
+function candidatesFor(
+  usable: ResolvedSelectOptions['units'],
+  multipliers: readonly number[],
+  need: { minF: number; maxF: number | null; fixedMaxF: number },
+  maxUnits: number,
+): Candidate | null {
+  const stepSum = multipliers.reduce((a, b) => a + b, 0);
+  const all: Candidate[] = [];
+  for (const { unit, index } of usable) {
+    const cu = unitCapacitanceF(unit);
+    const make = (fixedUnits: number, stepBase: number): Candidate => {
+      const fixedF = fixedUnits * cu;
+      const stepsOn = stepBase === 0 ? multipliers.map(() => false) : stepsToSwitch(multipliers, stepBase * cu, fixedF, need.minF);
+      const designF = fixedF + stepBase * cu * multipliers.reduce((s, m, i) => s + (stepsOn[i] ? m : 0), 0);
+      const units = fixedUnits + stepBase * stepSum;
+      return {
+        unit,
+        index,
+        fixedUnits,
+        stepBase,
+        stepsOn,
+        designF,
+        installedKvar: units * unit.ratedKvar,
+        units,
+        withinWindow: need.maxF === null || designF <= need.maxF * (1 + 1e-12),
+      };
+    };
+    if (stepSum === 0) {
+      const c = make(Math.max(1, Math.ceil(need.minF / cu - 1e-9)), 0);
+      if (c.units <= maxUnits) all.push(c);
+      continue;
+    }
+    const fixedMax = Math.min(maxUnits, Math.floor(need.fixedMaxF / cu + 1e-9));
+    for (let j = 0; j <= fixedMax; j++) {
+      const remaining = need.minF - j * cu;
+      const k = remaining <= need.minF * 1e-12 ? 0 : Math.ceil(remaining / (stepSum * cu) - 1e-9);
+      const c = make(j, k);
+      if (c.units >= 1 && c.units <= maxUnits) all.push(c);
+    }
+  }
+  return pickBest(all);
+}
+
+/**
+ * Chooses units for each capacitor branch of a sized bank or compensator.
+ * Reactor branches are kept at their continuous value (not selected).
+ * @param sized a `BankSizing` or a `CompensatorSolution`
+ * @returns per branch the unit, the fixed and switched counts, the steps on at
+ *   the design load, installed kvar and capacitance, and the bank as equipment
+ * @throws {InputError} for an empty catalogue (`catalogue`), or when no unit is
+ *   rated for the voltage a branch sees (`catalogue`)
+ * @example
+ * selectBankUnits(sizeStarBank(board, {}), { pattern: '1:2:4' }).selections[0].stepUnits
+ * //=> [1, 2, 4]
+ */
+export function selectBankUnits(sized: SizedEquipment, options?: SelectBankUnitsOptions): BankSelection {
+  const opts = resolveSelectOptions(sized, options);
+  const multipliers = MULTIPLIERS[opts.pattern];
+  const omega = 2 * Math.PI * sized.frequencyHz;
+  const slots = sized.equipment.flatMap((g) => g.branches);
+  const warnings: CorrectionWarning[] = [];
+  const warn = (code: string, message: string, path: string | null = null, value: number | null = null, threshold: number | null = null) =>
+    warnings.push({ code, message, path, value, threshold });
+  const short: { branch: string; neededV: number }[] = [];
+  let highestNeed = 0;
+  const designB: number[] = [];
+  const fixedB: number[] = [];
+
+  const selections = sized.branches.map((b: BranchSizing, i): BranchSelection => {
+    const slot = slots[i]!;
+    const light = opts.lightLoad?.branches[i];
+    const highestVoltageV = Math.max(slot.vNominal, b.appliedV, light?.appliedV ?? 0);
+    const requiredRatedV = highestVoltageV * (1 + opts.margin);
+    const requiredF = b.element === 'capacitor' ? b.susceptanceS / omega : 0;
+    const minF = requiredF / (1 - opts.minus);
+    const maxF = b.limitSusceptanceS !== null && b.element === 'capacitor' ? b.limitSusceptanceS / omega / (1 + opts.plus) : null;
+    const lightLimit = light ? Math.max(0, light.limitSusceptanceS ?? light.susceptanceS) : 0;
+    const fixedMaxF = Math.min(lightLimit / omega / (1 + opts.plus), minF);
+    const empty = (): BranchSelection => {
+      designB.push(b.susceptanceS);
+      fixedB.push(b.susceptanceS);
+      return {
+        branch: b.branch, unit: null, fixedUnits: 0, stepUnits: [], stepsOnAtDesign: [], installedUnits: 0, installedKvar: 0,
+        requiredCapacitanceUF: 0, minimumCapacitanceUF: 0, maximumCapacitanceUF: null, fixedCapacitanceUF: 0, designCapacitanceUF: 0,
+        highestVoltageV, requiredRatedV, designKvarAtAppliedV: b.kvarAtAppliedV, designCurrentA: b.currentA, withinWindow: true,
+      };
+    };
+    if (b.element !== 'capacitor') return empty();
+    highestNeed = Math.max(highestNeed, requiredRatedV);
+    const usable = opts.units.filter(({ unit }) => unit.ratedV >= requiredRatedV * (1 - 1e-12));
+    if (!usable.length) {
+      short.push({ branch: b.branch, neededV: requiredRatedV });
+      return empty();
+    }
+    let chosen = candidatesFor(usable, multipliers, { minF, maxF, fixedMaxF }, opts.maxUnits);
+    if (!chosen) {
+      warn('unit-count', warningText.unitCount(b.branch, opts.maxUnits), 'bank.maxUnitsPerBranch', null, opts.maxUnits);
+      chosen = candidatesFor(usable, multipliers, { minF, maxF, fixedMaxF }, Number.MAX_SAFE_INTEGER);
+    }
+    const c = chosen!;
+    if (!c.withinWindow) warn('tolerance-window', warningText.windowMissed(b.branch));
+    if (c.unit.ratedHz !== sized.frequencyHz)
+      warn('unit-frequency', warningText.unitFrequency(c.unit.name ?? `catalogue[${c.index}]`, c.unit.ratedHz, sized.frequencyHz), c.index === null ? null : `catalogue[${c.index}].ratedHz`, c.unit.ratedHz, sized.frequencyHz);
+    const cu = unitCapacitanceF(c.unit);
+    const fixedF = c.fixedUnits * cu;
+    designB.push(c.designF * omega);
+    fixedB.push(fixedF * omega);
+    const out = capacitorOutput(c.unit, { voltageV: b.appliedV, frequencyHz: sized.frequencyHz });
+    if (out.kvar < CORRECTION_DEFAULTS.underusedOutputFraction * c.unit.ratedKvar)
+      warn('unit-underused', warningText.unitUnderused(b.branch, c.unit.ratedV, b.appliedV, out.kvar / c.unit.ratedKvar), null, out.kvar / c.unit.ratedKvar, CORRECTION_DEFAULTS.underusedOutputFraction);
+    const designKvar = (c.designF * omega * b.appliedV ** 2) / 1000;
+    return {
+      branch: b.branch,
+      unit: {
+        name: c.unit.name ?? `catalogue[${c.index}]`,
+        ratedKvar: c.unit.ratedKvar,
+        ratedV: c.unit.ratedV,
+        ratedHz: c.unit.ratedHz,
+        source: opts.typical ? 'typical' : 'catalogue',
+        catalogueIndex: c.index,
+        capacitanceUF: cu * 1e6,
+        outputKvar: out.kvar,
+      },
+      fixedUnits: c.fixedUnits,
+      stepUnits: multipliers.map((m) => m * c.stepBase),
+      stepsOnAtDesign: c.stepsOn,
+      installedUnits: c.units,
+      installedKvar: c.installedKvar,
+      requiredCapacitanceUF: requiredF * 1e6,
+      minimumCapacitanceUF: minF * 1e6,
+      maximumCapacitanceUF: maxF === null ? null : maxF * 1e6,
+      fixedCapacitanceUF: fixedF * 1e6,
+      designCapacitanceUF: c.designF * 1e6,
+      highestVoltageV,
+      requiredRatedV,
+      designKvarAtAppliedV: designKvar,
+      designCurrentA: c.designF * omega * b.appliedV,
+      withinWindow: c.withinWindow,
+    };
+  });
+  if (short.length) {
+    const neededV = Math.max(...short.map((s) => s.neededV));
+    throw new InputError(
+      [inputIssue('out_of_range', 'catalogue', selectionWording.noUnit(short.map((s) => s.branch), neededV), `units rated up to ${Math.max(...opts.units.map((u) => u.unit.ratedV))} V`)],
+      'no capacitor unit fits',
+    );
+  }
+  if (!opts.typical)
+    opts.units.forEach(({ unit, index }) => {
+      if (unit.ratedV < highestNeed * (1 - 1e-12))
+        warn('unit-voltage-low', warningText.unitVoltageLow(unit.name ?? `catalogue[${index}]`, unit.ratedV, highestNeed), `catalogue[${index}].ratedV`, unit.ratedV, highestNeed);
+    });
+  if (sized.branches.some((b) => b.element === 'reactor')) warn('reactors-not-selected', warningText.reactorsNotSelected);
+
+  let k = 0;
+  const equipment: EquipmentGroup[] = sized.equipment.map((g) => ({
+    ...g,
+    branches: g.branches.map((br): EquipmentBranch => {
+      const design = designB[k]!;
+      const fixed = fixedB[k++]!;
+      return { ...br, susceptanceS: design, fixedSusceptanceS: fixed };
+    }),
+  }));
+  return {
+    frequencyHz: sized.frequencyHz,
+    equipment,
+    catalogue: opts.typical ? 'typical' : 'user',
+    catalogueNote: opts.typical ? selectionWording.typicalNote : selectionWording.userNote,
+    pattern: opts.pattern,
+    capacitanceTolerance: { minusPercent: opts.minus * 100, plusPercent: opts.plus * 100 },
+    voltageMarginPercent: opts.margin * 100,
+    selections,
+    installedKvar: selections.reduce((s, x) => s + x.installedKvar, 0),
+    installedUnits: selections.reduce((s, x) => s + x.installedUnits, 0),
+    warnings,
+  };
+}

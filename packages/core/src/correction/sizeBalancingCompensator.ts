@@ -1,0 +1,188 @@
+/**
+ * Balancing compensator: reactive branches line-to-line (and line-to-neutral on
+ * a 4-wire board) that cancel the negative-sequence (and zero-sequence) line
+ * current and set the positive-sequence reactive power — the Steinmetz /
+ * Gyugyi compensator, sized on the solved board rather than from the formulas.
+ * Two answers: the ideal one (reactors where needed) and the best one with
+ * capacitors only.
+ */
+import type { Board } from '../board/boardModel.js';
+import type { SolveOptions } from '../network/solveNetwork.js';
+import { abs } from '../complex.js';
+import { compensatorSchema, targetSchema, type CompensatorSpec, type TargetSpec } from './correctionSpec.js';
+import { CORRECTION_DEFAULTS } from './correctionDefaults.js';
+import { checkTarget, resolveTarget, type ResolvedTarget } from './correctionTarget.js';
+import { lineBands } from './_internal/lineBands.js';
+import { deltaSlots, starSlots } from './equipment.js';
+import type { CompensatorSizing, CompensatorSolution, CorrectionWarning } from './correctionResult.js';
+import { compensatorWording, infeasibleReason, warningText } from './correctionWording.js';
+import { checkRules, definedOnly, maxIterationsSchema, solveOptionsSchema } from './_internal/optionSchemas.js';
+import { parseOptions } from './_internal/zodIssues.js';
+import { createProbe, type ProbeState } from './_internal/boardProbe.js';
+import { branchSizings, lineComparisons } from './_internal/branchReadings.js';
+import { compensatorResidual, residualWeights, type ResidualBases } from './_internal/compensatorResidual.js';
+import { solveIdealCompensator } from './_internal/idealCompensator.js';
+import { solveCapacitorOnlyCompensator } from './_internal/capacitorOnlyCompensator.js';
+
+export interface CompensatorOptions {
+  /**
+   * The target: `pf` sets the positive-sequence reactive power aimed at,
+   * Q1 = P1·tan(acos pf); `leading: 'never'` keeps every line from leading in
+   * the capacitor-only solution.
+   * @defaultValue `{ pf: 0.95, definition: 'positive-sequence', leading: 'never' }`
+   */
+  readonly target?: TargetSpec;
+  /**
+   * `delta`: line-to-line branches only (I0, the neutral current, is then left
+   * as it is); `delta-and-star`: also line-to-neutral branches, which cancel I0.
+   * @defaultValue 'delta-and-star' on a board with a closed neutral, otherwise 'delta'
+   */
+  readonly branches?: CompensatorSpec['branches'];
+  /** Weights of the capacitor-only objective. @defaultValue `{ negativeSequence: 1, zeroSequence: 1, reactive: 1 }` */
+  readonly weights?: CompensatorSpec['weights'];
+  /** Passed to the board solver at every re-solve. @defaultValue solver defaults */
+  readonly solve?: SolveOptions;
+  /** Outer iterations of each solution. @defaultValue 30 */
+  readonly maxIterations?: number;
+}
+
+const compensatorOptionsSchema = compensatorSchema.extend({
+  target: targetSchema.optional(),
+  solve: solveOptionsSchema.optional(),
+  maxIterations: maxIterationsSchema.optional(),
+});
+
+interface ResolvedCompensatorOptions {
+  readonly target: ResolvedTarget;
+  readonly branches: 'delta' | 'delta-and-star';
+  readonly weights: { negativeSequence: number; zeroSequence: number; reactive: number };
+  readonly solve: SolveOptions;
+  readonly maxIterations: number;
+}
+
+function resolveCompensatorOptions(board: Board, input: CompensatorOptions | undefined): ResolvedCompensatorOptions {
+  const options = parseOptions(compensatorOptionsSchema, input, 'sizeBalancingCompensator options');
+  const compensator = definedOnly({ branches: options.branches, weights: options.weights });
+  checkRules(definedOnly({ arrangement: 'balancing-compensator' as const, target: options.target, compensator }), board, 'sizeBalancingCompensator options');
+  const w = options.weights ?? {};
+  const defaults = CORRECTION_DEFAULTS.compensatorWeights;
+  return {
+    target: resolveTarget(options.target, board, true),
+    branches: options.branches ?? (board.hasNeutral && !board.neutralOpen ? 'delta-and-star' : 'delta'),
+    weights: {
+      negativeSequence: w.negativeSequence ?? defaults.negativeSequence,
+      zeroSequence: w.zeroSequence ?? defaults.zeroSequence,
+      reactive: w.reactive ?? defaults.reactive,
+    },
+    solve: definedOnly(options.solve ?? {}),
+    maxIterations: options.maxIterations ?? CORRECTION_DEFAULTS.maxIterations,
+  };
+}
+
+const tanOf = (pf: number) => Math.sqrt(1 - pf * pf) / pf;
+
+/**
+ * Sizes the ideal and the best capacitor-only balancing compensator for a
+ * three-phase board.
+ * @param board a normalised three-phase board
+ * @returns both solutions with their branches (kvar, µF or mH, current), which
+ *   branches need reactors, and the residual unbalance, neutral current and PF of each
+ * @throws {InputError} on a board without three phases, or options that do not fit it
+ * @throws {NumericalError} if a re-solve fails
+ * @example
+ * // 10 kW resistive load across A–B of a 400 V 3-wire ABC board, target unity:
+ * const { ideal } = sizeBalancingCompensator(board, { target: { pf: 1 } });
+ * ideal.branches.map((b) => b.kvarAtNominalV)
+ * //=> [0, 5.773…, −5.773…]  (A-B, B-C capacitor, C-A reactor: P/√3 each)
+ */
+export function sizeBalancingCompensator(board: Board, options?: CompensatorOptions): CompensatorSizing {
+  const opts = resolveCompensatorOptions(board, options);
+  const { target } = opts;
+  const slots = [...deltaSlots(board), ...(opts.branches === 'delta-and-star' ? starSlots(board, 'neutral') : [])];
+  const probe = createProbe(board, slots, 'compensator', opts.solve);
+  const start = probe.at(slots.map(() => 0));
+  const i1 = start.result.sequences ? abs(start.result.sequences.current.positive) : 0;
+  const currentBase = i1 > 0 ? i1 : 1;
+  const bases: ResidualBases = {
+    currentA: currentBase,
+    powerKVA: (3 * board.nominalLineToNeutralV * currentBase) / 1000,
+    targetTan: tanOf(target.pf),
+    includeZeroSequence: opts.branches === 'delta-and-star',
+  };
+  const weights = residualWeights(bases, opts.weights);
+  const warnings: CorrectionWarning[] = [];
+  const warn = (code: string, message: string) => warnings.push({ code, message, path: null, value: null, threshold: null });
+
+  const solution = (kind: CompensatorSolution['kind'], state: ProbeState, objective: number, exact: boolean): CompensatorSolution => {
+    const equipment = probe.groups(state.kvar);
+    const branches = branchSizings(equipment, state.board, state.result);
+    const check = checkTarget(state.result, target);
+    const ps = state.result.powerFactor.positiveSequence;
+    return {
+      kind,
+      frequencyHz: board.frequencyHz,
+      branches,
+      equipment,
+      reactorBranches: branches.filter((b) => b.element === 'reactor').map((b) => b.branch),
+      exact,
+      objective,
+      residual: {
+        negativeSequenceCurrentPercent: state.result.unbalance?.currentNegativePercent ?? 0,
+        zeroSequenceCurrentPercent: state.result.unbalance?.currentZeroPercent ?? 0,
+        neutralCurrentA: state.result.neutral?.current.magnitude ?? null,
+        positiveSequencePf: ps?.pf ?? null,
+        positiveSequenceKvar: ps?.kvar ?? null,
+        effectivePf: state.result.powerFactor.effective?.pf ?? null,
+        leadingLines: check.leadingLines,
+      },
+      check,
+      lines: lineComparisons(start.result, state.result),
+    };
+  };
+
+  const ideal = solveIdealCompensator(probe, bases, opts.maxIterations);
+  if (!ideal.converged) warn('not-converged', compensatorWording.notConverged('ideal', ideal.iterations));
+  const lowerTan = lineBands(target, start, 'limit').map((b) => b.low);
+  const capOnly = solveCapacitorOnlyCompensator(probe, bases, {
+    weights,
+    ridge: CORRECTION_DEFAULTS.compensatorRidge,
+    lineLowerTan: lowerTan,
+    maxIterations: opts.maxIterations,
+    convergence: CORRECTION_DEFAULTS.convergence,
+  });
+  if (!capOnly.converged) warn('not-converged', compensatorWording.notConverged('capacitor-only', capOnly.iterations));
+  if (capOnly.leadingConstraintsDropped) warn('leading-bound-dropped', compensatorWording.leadingDropped);
+
+  const startResidual = compensatorResidual(start, bases);
+  const idealSolution = solution('ideal', ideal.state, 0, ideal.converged);
+  const capSolution = solution('capacitor-only', capOnly.state, capOnly.objective, Math.sqrt(capOnly.objective) < 1e-6);
+  const alreadyBalanced = Math.hypot(...startResidual) < 1e-9 && checkTarget(start.result, target).met;
+  let status: CompensatorSizing['status'] = 'infeasible';
+  const reasons: string[] = [];
+  if (alreadyBalanced) status = 'already-meets-target';
+  else if (capSolution.check.met) {
+    status = 'meets-target';
+    if (!capSolution.exact)
+      warn(
+        'partial-balance',
+        warningText.partialBalance(capSolution.residual.negativeSequenceCurrentPercent, capSolution.residual.zeroSequenceCurrentPercent, idealSolution.reactorBranches),
+      );
+  } else {
+    if (idealSolution.reactorBranches.length) reasons.push(infeasibleReason.needsReactors(idealSolution.reactorBranches));
+    if (capSolution.check.shortfalls.length) reasons.push(infeasibleReason.capacitorsCannotReach(capSolution.check.shortfalls));
+  }
+  return {
+    arrangement: 'balancing-compensator',
+    branchesUsed: opts.branches,
+    target,
+    q1TargetKvar: (capOnly.state.result.powerFactor.positiveSequence?.kW ?? 0) * bases.targetTan,
+    objectiveStatement: compensatorWording.objective(opts.weights, bases.includeZeroSequence, CORRECTION_DEFAULTS.compensatorRidge, true),
+    weights: opts.weights,
+    ideal: idealSolution,
+    capacitorOnly: capSolution,
+    status,
+    reasons,
+    warnings,
+    solves: probe.solves(),
+  };
+}

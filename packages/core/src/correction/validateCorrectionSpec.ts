@@ -1,0 +1,36 @@
+/**
+ * Validation of a correction spec against a board: shape first (zod), then the
+ * board-dependent rules. `validateCorrectionSpec` returns a result;
+ * `parseCorrectionSpec` throws an `InputError`.
+ */
+import type { Board } from '../board/boardModel.js';
+import { InputError, type InputIssue } from '../errors.js';
+import { correctionSpecSchema, type CorrectionSpec } from './correctionSpec.js';
+import { CORRECTION_RULES } from './correctionRules.js';
+import { inputIssuesFromZod } from './_internal/zodIssues.js';
+
+export type CorrectionSpecValidation = { ok: true; spec: CorrectionSpec } | { ok: false; issues: InputIssue[] };
+
+/**
+ * Checks a correction spec (a plain object, e.g. from a file or CLI flags) for a board.
+ * @returns `{ ok: true, spec }` or `{ ok: false, issues }` with every problem and its field path.
+ */
+export function validateCorrectionSpec(input: unknown, board: Board): CorrectionSpecValidation {
+  const parsed = correctionSpecSchema.safeParse(input);
+  if (!parsed.success) return { ok: false, issues: inputIssuesFromZod(parsed.error.issues, input) };
+  const issues = CORRECTION_RULES.flatMap((rule) => rule(parsed.data, board));
+  return issues.length ? { ok: false, issues } : { ok: true, spec: parsed.data };
+}
+
+/**
+ * Validates a correction spec for a board and returns it typed.
+ * @throws {InputError} listing every problem, each with its field path (`target.pf`).
+ * @example
+ * parseCorrectionSpec({ arrangement: 'star-bank', target: { pf: 1.2 } }, board)
+ * //=> throws InputError: "target.pf: expected a number <= 1 (received 1.2)"
+ */
+export function parseCorrectionSpec(input: unknown, board: Board): CorrectionSpec {
+  const result = validateCorrectionSpec(input, board);
+  if (!result.ok) throw new InputError(result.issues, 'the correction settings are not valid');
+  return result.spec;
+}

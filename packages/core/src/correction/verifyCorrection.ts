@@ -1,0 +1,192 @@
+/**
+ * Re-solves a board with correction equipment in place and reports what it
+ * does: before and after for every line and the whole board, the target check
+ * at nominal capacitance and at both tolerance ends, the steady voltage rise,
+ * the supply resonance estimate, and the light-load check of the fixed part.
+ */
+import { z } from 'zod';
+import type { Board, PhaseId } from '../board/boardModel.js';
+import type { BoardResult } from '../analysis/boardResult.js';
+import { analyseSolution } from '../analysis/analyseSolution.js';
+import { solveNetwork, type SolveOptions } from '../network/solveNetwork.js';
+import { abs, add } from '../complex.js';
+import { lightLoadSchema, targetSchema, ARRANGEMENTS, type Arrangement, type CapacitanceToleranceSpec, type LightLoadSpec, type TargetSpec } from './correctionSpec.js';
+import { CORRECTION_DEFAULTS } from './correctionDefaults.js';
+import { checkTarget, lineTanBounds, resolveTarget, TARGET_SLACK } from './correctionTarget.js';
+import { addCorrectionEquipment, type EquipmentGroup } from './equipment.js';
+import { scaleBoardLoads } from './scaleBoardLoads.js';
+import type { CorrectionVerification, CorrectionWarning, LightLoadCheck, VoltageRise } from './correctionResult.js';
+import { warningText } from './correctionWording.js';
+import { beforeAfter, branchSizings, lineComparisons } from './_internal/branchReadings.js';
+import { checkRules, definedOnly, solveOptionsSchema } from './_internal/optionSchemas.js';
+import { parseOptions } from './_internal/zodIssues.js';
+
+export interface VerifyCorrectionOptions {
+  /** The equipment to add, e.g. `selection.equipment` or `sizing.equipment`. */
+  readonly equipment: readonly EquipmentGroup[];
+  /** The target to judge against. @defaultValue as for the arrangement's sizing function */
+  readonly target?: TargetSpec;
+  /** Only picks the default target definition (PF1+ for a compensator). @defaultValue 'star-bank' */
+  readonly arrangement?: Arrangement;
+  /** Light-load condition for the fixed part. @defaultValue none (no light-load check) */
+  readonly lightLoad?: LightLoadSpec;
+  /** @defaultValue `{ minusPercent: 5, plusPercent: 10 }` (IEC 60831-1, from memory) */
+  readonly capacitanceTolerance?: CapacitanceToleranceSpec;
+  /** Flag a steady voltage rise above this, %. @defaultValue 3 */
+  readonly voltageRiseLimitPercent?: number;
+  /** Passed to the board solver. @defaultValue solver defaults */
+  readonly solve?: SolveOptions;
+}
+
+const verifyOptionsSchema = z.strictObject({
+  equipment: z.custom<readonly EquipmentGroup[]>((v) => Array.isArray(v)),
+  target: targetSchema.optional(),
+  arrangement: z.enum(ARRANGEMENTS).optional(),
+  lightLoad: lightLoadSchema.optional(),
+  capacitanceTolerance: z.strictObject({ minusPercent: z.number().min(0).max(50).optional(), plusPercent: z.number().min(0).max(50).optional() }).optional(),
+  voltageRiseLimitPercent: z.number().positive().max(100).optional(),
+  solve: solveOptionsSchema.optional(),
+});
+
+/** Characteristic harmonic orders a resonance near which is flagged. */
+const WATCHED_ORDERS = [3, 5, 7, 11, 13];
+
+function shortCircuitVA(board: Board): number | null {
+  const z = abs(add(board.sourceImpedance, board.lineImpedance));
+  return z === 0 ? null : (board.phases.length * board.nominalLineToNeutralV ** 2) / z;
+}
+
+function voltageRise(board: Board, capacitorKvar: number, before: BoardResult, after: BoardResult, limitPercent: number): VoltageRise {
+  const ssc = shortCircuitVA(board);
+  const estimatePercent = ssc === null ? null : (100 * capacitorKvar * 1000) / ssc;
+  const solvedPercent = Math.max(...after.phases.map((p, k) => (100 * (p.voltage.magnitude - before.phases[k]!.voltage.magnitude)) / board.nominalLineToNeutralV));
+  return {
+    capacitorKvar,
+    shortCircuitKVA: ssc === null ? null : ssc / 1000,
+    estimatePercent,
+    solvedPercent,
+    limitPercent,
+    flagged: Math.max(estimatePercent ?? -Infinity, solvedPercent) > limitPercent,
+  };
+}
+
+/**
+ * Verifies correction equipment on a board by re-solving it.
+ * @param board the board without the equipment
+ * @returns before/after readings (the two `BoardResult`s are embedded), the
+ *   corrected `Board`, target checks at nominal and tolerance-end capacitance,
+ *   voltage rise, resonance order and the light-load check
+ * @throws {InputError} for options that do not fit the board
+ * @throws {NumericalError} if a solve fails
+ * @example
+ * const v = verifyCorrection(board, { equipment: selection.equipment, lightLoad: { fraction: 0.25 } });
+ * v.check.met //=> true
+ */
+export function verifyCorrection(board: Board, options: VerifyCorrectionOptions): CorrectionVerification {
+  const opts = parseOptions(verifyOptionsSchema, options, 'verifyCorrection options');
+  const arrangement = opts.arrangement ?? 'star-bank';
+  checkRules(definedOnly({ arrangement, target: opts.target, lightLoad: opts.lightLoad }), board, 'verifyCorrection options');
+  const target = resolveTarget(opts.target, board, arrangement === 'balancing-compensator');
+  const minus = (opts.capacitanceTolerance?.minusPercent ?? CORRECTION_DEFAULTS.capacitanceTolerance.minusPercent) / 100;
+  const plus = (opts.capacitanceTolerance?.plusPercent ?? CORRECTION_DEFAULTS.capacitanceTolerance.plusPercent) / 100;
+  const riseLimit = opts.voltageRiseLimitPercent ?? CORRECTION_DEFAULTS.voltageRiseLimitPercent;
+  const solveOptions = definedOnly(opts.solve ?? {});
+  const solve = (b: Board) => analyseSolution(solveNetwork(b, solveOptions));
+  const equipment = opts.equipment;
+  const warnings: CorrectionWarning[] = [];
+  const warn = (code: string, message: string, value: number | null = null, threshold: number | null = null) =>
+    warnings.push({ code, message, path: null, value, threshold });
+
+  const before = solve(board);
+  const corrected = addCorrectionEquipment(board, equipment);
+  const after = solve(corrected);
+  const check = checkTarget(after, target);
+  const branches = branchSizings(equipment, corrected, after);
+  const low = checkTarget(solve(addCorrectionEquipment(board, equipment, { capacitanceFactor: 1 - minus })), target);
+  const high = checkTarget(solve(addCorrectionEquipment(board, equipment, { capacitanceFactor: 1 + plus })), target);
+  if (check.met && !low.met) warn('tolerance-low', warningText.toleranceLow(low.shortfalls));
+  if (high.leadingLines.length && !check.leadingLines.length) warn('tolerance-high', warningText.toleranceHigh(high.leadingLines));
+
+  const capacitorKvar = branches.reduce((s, b) => s + b.kvarAtAppliedV, 0);
+  const rise = voltageRise(board, capacitorKvar, before, after, riseLimit);
+  if (rise.flagged) warn('voltage-rise', warningText.voltageRise('the bank at the design load', Math.max(rise.estimatePercent ?? -Infinity, rise.solvedPercent), riseLimit), rise.solvedPercent, riseLimit);
+  const ssc = shortCircuitVA(board);
+  const resonanceOrder = ssc !== null && capacitorKvar > 0 ? Math.sqrt(ssc / (capacitorKvar * 1000)) : null;
+  if (resonanceOrder !== null && WATCHED_ORDERS.some((h) => Math.abs(resonanceOrder - h) <= 0.1 * h)) warn('resonance', warningText.lowResonance(resonanceOrder), resonanceOrder, null);
+  if (ssc === null && capacitorKvar > 0) warn('ideal-source', warningText.idealSource);
+
+  let lightLoad: LightLoadCheck | null = null;
+  if (opts.lightLoad) {
+    const lightBoard = scaleBoardLoads(board, opts.lightLoad);
+    const lightBefore = solve(lightBoard);
+    const lightCorrected = addCorrectionEquipment(lightBoard, equipment, { state: 'fixed', capacitanceFactor: 1 + plus });
+    const lightAfter = solve(lightCorrected);
+    const leadingLines: PhaseId[] = [];
+    lightAfter.phases.forEach((p, k) => {
+      const b = lightBefore.phases[k]!;
+      const present = b.kW !== 0 ? b.kvar / Math.abs(b.kW) : Infinity;
+      const bound = Math.min(lineTanBounds(target, k).low, present);
+      if (p.kVA > 0 && p.kvar < bound * Math.abs(p.kW) - TARGET_SLACK * Math.max(p.kVA, b.kVA)) leadingLines.push(p.phase);
+    });
+    const fixedOnly = equipment.map((g) => ({ ...g, branches: g.branches.map((b) => ({ ...b, susceptanceS: b.fixedSusceptanceS })) }));
+    const fixedKvar = branchSizings(fixedOnly, lightCorrected, lightAfter).reduce((sum, b) => sum + b.kvarAtAppliedV, 0);
+    const lightRise = voltageRise(board, fixedKvar, lightBefore, lightAfter, riseLimit);
+    if (leadingLines.length) warn('light-load-leading', warningText.lightLoadLeading(leadingLines));
+    if (lightRise.flagged) warn('voltage-rise-light-load', warningText.voltageRise('the fixed part at light load', Math.max(lightRise.estimatePercent ?? -Infinity, lightRise.solvedPercent), riseLimit), lightRise.solvedPercent, riseLimit);
+    lightLoad = {
+      fraction: opts.lightLoad.fraction,
+      perLoad: opts.lightLoad.perLoad ?? {},
+      fixedKvar,
+      lines: lightAfter.phases.map((p) => ({ phase: p.phase, pf: p.pf, sense: p.sense })),
+      leadingLines,
+      ok: leadingLines.length === 0,
+      voltageRise: lightRise,
+      after: lightAfter,
+    };
+  }
+
+  const pfPair = (get: (r: BoardResult) => number | null | undefined) => {
+    const b = get(before);
+    const a = get(after);
+    return b === null || b === undefined || a === null || a === undefined ? null : beforeAfter(b, a);
+  };
+  const sourceKVA = (r: BoardResult) => Math.hypot(r.source.kW, r.source.kvar);
+  return {
+    equipment,
+    board: corrected,
+    target,
+    before,
+    after,
+    check,
+    checkBefore: checkTarget(before, target),
+    branches,
+    lines: lineComparisons(before, after),
+    powerFactor: {
+      effective: pfPair((r) => r.powerFactor.effective?.pf),
+      vector: beforeAfter(before.powerFactor.vector.pf, after.powerFactor.vector.pf),
+      arithmetic: beforeAfter(before.powerFactor.arithmetic.pf, after.powerFactor.arithmetic.pf),
+      positiveSequence: pfPair((r) => r.powerFactor.positiveSequence?.pf),
+    },
+    neutralCurrentA: before.neutral && after.neutral ? beforeAfter(before.neutral.current.magnitude, after.neutral.current.magnitude) : null,
+    unbalance:
+      before.unbalance && after.unbalance
+        ? {
+            negativeSequenceCurrentPercent: beforeAfter(before.unbalance.currentNegativePercent, after.unbalance.currentNegativePercent),
+            zeroSequenceCurrentPercent: beforeAfter(before.unbalance.currentZeroPercent, after.unbalance.currentZeroPercent),
+            voltageFactorPercent: beforeAfter(before.unbalance.voltageFactorPercent, after.unbalance.voltageFactorPercent),
+          }
+        : null,
+    releasedKVA: {
+      effective: before.powerFactor.effective && after.powerFactor.effective ? before.powerFactor.effective.kVA - after.powerFactor.effective.kVA : null,
+      vector: before.powerFactor.vector.kVA - after.powerFactor.vector.kVA,
+      arithmetic: before.powerFactor.arithmetic.kVA - after.powerFactor.arithmetic.kVA,
+      source: sourceKVA(before) - sourceKVA(after),
+    },
+    lossReductionKW: before.losses.totalKW - after.losses.totalKW,
+    tolerance: { low: { capacitanceFactor: 1 - minus, check: low }, high: { capacitanceFactor: 1 + plus, check: high } },
+    voltageRise: rise,
+    resonanceOrder,
+    lightLoad,
+    warnings,
+  };
+}
