@@ -46,3 +46,42 @@ export { boardPowerDefinitions, effectiveQuantities } from './analysis/powerDefi
 export { analyseSolution, powerReading } from './analysis/analyseSolution.js';
 export { studyOpenNeutral } from './analysis/studyOpenNeutral.js';
 export { WARNING_THRESHOLDS } from './analysis/boardWarnings.js';
+
+// Correction
+export type {
+  CorrectionSpec,
+  TargetSpec,
+  CapacitorUnitSpec,
+  BankSpec,
+  LightLoadSpec,
+  CompensatorSpec,
+  CapacitanceToleranceSpec,
+  Arrangement,
+  TargetDefinition,
+  StepPattern,
+} from './correction/correctionSpec.js';
+export { correctionSpecSchema } from './correction/correctionSpec.js';
+export type { CorrectionSpecValidation } from './correction/validateCorrectionSpec.js';
+export { validateCorrectionSpec, parseCorrectionSpec } from './correction/validateCorrectionSpec.js';
+export { CORRECTION_DEFAULTS } from './correction/correctionDefaults.js';
+export type { ResolvedTarget, TargetCheck, LineTargetCheck, BoardTargetDefinition } from './correction/correctionTarget.js';
+export { resolveTarget, checkTarget, boardPowerFactor } from './correction/correctionTarget.js';
+export type { EquipmentGroup, EquipmentBranch, EquipmentTerminal, BranchSlot, AddEquipmentOptions } from './correction/equipment.js';
+export { addCorrectionEquipment } from './correction/equipment.js';
+export type { AppliedConditions, CapacitorOutput } from './correction/capacitorOutput.js';
+export { capacitorOutput } from './correction/capacitorOutput.js';
+export { TYPICAL_CAPACITOR_UNITS } from './correction/typicalCapacitorUnits.js';
+export { scaleBoardLoads } from './correction/scaleBoardLoads.js';
+export type { StarBankOptions } from './correction/sizeStarBank.js';
+export { sizeStarBank } from './correction/sizeStarBank.js';
+export type { DeltaBankOptions } from './correction/sizeDeltaBank.js';
+export { sizeDeltaBank } from './correction/sizeDeltaBank.js';
+export type { CompensatorOptions } from './correction/sizeBalancingCompensator.js';
+export { sizeBalancingCompensator } from './correction/sizeBalancingCompensator.js';
+export type { SelectBankUnitsOptions } from './correction/selectBankUnits.js';
+export { selectBankUnits } from './correction/selectBankUnits.js';
+export type { VerifyCorrectionOptions } from './correction/verifyCorrection.js';
+export { verifyCorrection } from './correction/verifyCorrection.js';
+export { correctBoard } from './correction/correctBoard.js';
+export type * from './correction/correctionResult.js';
+export { CORRECTION_CAUTIONS } from './correction/correctionWording.js';
