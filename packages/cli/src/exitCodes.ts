@@ -11,6 +11,8 @@ export const EXIT = {
   input: 3,
   /** The board is valid but has no solution (singular network, loads beyond what the supply can deliver). */
   numerical: 4,
+  /** `trivar correct` ran, but the target cannot be met with the allowed equipment (the report says why). */
+  targetNotMet: 5,
 } as const;
 
 /** A problem with the command line or the files it names. */

@@ -6,6 +6,7 @@
  * neutral load on a board with no neutral...) live in `boardRules.ts`.
  */
 import { z } from 'zod';
+import { correctionSpecSchema } from '../correction/correctionSpec.js';
 
 const positive = z.number().positive();
 const nonNegative = z.number().nonnegative();
@@ -106,6 +107,10 @@ export const boardSchema = z
     feeder: feederSchema.optional(),
     loads: z.array(loadSchema).min(1).describe('the circuits on the board'),
     studies: studiesSchema.optional(),
+    correction: correctionSpecSchema
+      .partial()
+      .optional()
+      .describe('a power-factor correction study for `trivar correct` (command-line options override it)'),
   })
   .describe('a trivar board file');
 
