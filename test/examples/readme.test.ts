@@ -10,6 +10,11 @@ describe('README', () => {
     const shown = block.replace(/^\s*```text\n/, '').replace(/```\s*$/, '');
     expect(shown.trimEnd()).toBe(runTrivar(['solve', 'examples/corner-bakery.yaml']).stdout.trimEnd());
   });
+  it('correction output block matches `trivar correct examples/riverside-cold-store.yaml`', () => {
+    const block = readme.split('<!-- correct-output:start -->')[1]!.split('<!-- correct-output:end -->')[0]!;
+    const shown = block.replace(/^\s*```text\n/, '').replace(/```\s*$/, '');
+    expect(shown.trimEnd()).toBe(runTrivar(['correct', 'examples/riverside-cold-store.yaml']).stdout.trimEnd());
+  });
   it('names the two set-up commands', () => {
     expect(readme).toContain('npm run demo');
     expect(readme).toContain('npm test');
