@@ -60,6 +60,9 @@ export const warningText = {
     `unit "${name}" (rated ${f1(ratedV)} V) is not used: its rating is below the ${f1(neededV)} V it needs (highest applied voltage plus margin)`,
   unitFrequency: (name: string, ratedHz: number, hz: number) =>
     `unit "${name}" is rated for ${ratedHz} Hz and used at ${hz} Hz: its output and current scale by ${f3(hz / ratedHz)}`,
+  unitsBelowTarget: (branch: string) =>
+    `branch ${branch}: the units cannot reach the requirement without passing the no-leading limit; the design stays below the limit and short of the target`,
+  unitsPastLimit: (branch: string) => `branch ${branch}: no build of the available units stays within the no-leading limit; the smallest that reaches the target is used`,
   windowMissed: (branch: string) =>
     `branch ${branch}: no combination of units guarantees the target at the lowest capacitance tolerance without exceeding the no-leading limit at the highest; the choice meets the target at nominal capacitance`,
   toleranceLow: (shortfalls: readonly string[]) => `with capacitance at the low end of its tolerance the target is missed: ${shortfalls.join('; ')}`,

@@ -8,7 +8,9 @@
  * - rated voltage ≥ highest voltage across the branch × (1 + margin);
  * - the design state (fixed part + the steps switched on at the design load)
  *   reaches C_req/(1 − tol⁻), so the target holds with the lowest capacitance,
- *   and if possible stays ≤ C_limit/(1 + tol⁺), so no line leads with the highest;
+ *   and stays ≤ C_limit/(1 + tol⁺), so no line leads with the highest; where no
+ *   build fits that window, not leading comes first and the target second
+ *   (see `tierOf`);
  * - the fixed part stays ≤ the light-load limit/(1 + tol⁺) (no fixed part
  *   without a light-load condition);
  * - among those, the least installed nameplate kvar — counting anything within
@@ -95,29 +97,73 @@ interface Candidate {
   readonly designF: number;
   readonly installedKvar: number;
   readonly units: number;
-  readonly withinWindow: boolean;
+  readonly tier: number;
 }
 
-/** Smallest set of steps (by capacitance) that lifts `fixedF` to `neededF`; all steps when even that falls short. */
-function stepsToSwitch(multipliers: readonly number[], stepF: number, fixedF: number, neededF: number): boolean[] {
-  let best: boolean[] = multipliers.map(() => true);
-  let bestSum = Infinity;
+/** What a branch's design state should reach, F (capacitance). Null bounds are unknown. */
+interface Need {
+  /** The sizing's requirement. */
+  readonly nominalF: number;
+  /** Requirement / (1 − tol⁻): met even with the lowest capacitance. */
+  readonly minF: number;
+  /** Limit / (1 + tol⁺): no line leads even with the highest capacitance. */
+  readonly maxF: number | null;
+  /** The limit itself (nominal capacitance). */
+  readonly limitF: number | null;
+  readonly fixedMaxF: number;
+}
+
+/**
+ * How well a design state fits, best first:
+ * 0 target at −tol and no lead at +tol; 1 target at nominal, no lead at +tol;
+ * 2 target at nominal, no lead at nominal; 3 short of the target but no lead
+ * at +tol; 4 short of the target, no lead at nominal; 5 past the limit.
+ * Never leading comes before reaching the target.
+ */
+function tierOf(designF: number, need: Need): number {
+  const eps = 1e-12 * Math.max(need.nominalF, 1e-30);
+  const underMax = need.maxF === null || designF <= need.maxF + eps;
+  const underLimit = need.limitF === null || designF <= need.limitF + eps;
+  if (designF >= need.minF - eps && underMax) return 0;
+  if (designF >= need.nominalF - eps && underMax) return 1;
+  if (designF >= need.nominalF - eps && underLimit) return 2;
+  if (need.maxF !== null && underMax) return 3;
+  if (need.limitF !== null && underLimit) return 4;
+  return 5;
+}
+
+/** Within a tier: the smallest state that reaches the target; below it the largest; past the limit the smallest. */
+const tieBreak = (tier: number, designF: number) => (tier === 3 || tier === 4 ? -designF : designF);
+
+/** The best switching state of a bank with these fixed and step capacitances. */
+function bestState(multipliers: readonly number[], stepF: number, fixedF: number, need: Need): { on: boolean[]; designF: number; tier: number } {
+  let best: { on: boolean[]; designF: number; tier: number } | null = null;
   for (let mask = 0; mask < 1 << multipliers.length; mask++) {
     const on = multipliers.map((_, i) => (mask & (1 << i)) !== 0);
-    const sum = multipliers.reduce((s, m, i) => s + (on[i] ? m : 0), 0);
-    if (fixedF + sum * stepF >= neededF * (1 - 1e-12) && sum < bestSum) {
-      best = on;
-      bestSum = sum;
-    }
+    const designF = fixedF + stepF * multipliers.reduce((sum, m, i) => sum + (on[i] ? m : 0), 0);
+    const tier = tierOf(designF, need);
+    if (!best || tier < best.tier || (tier === best.tier && tieBreak(tier, designF) < tieBreak(tier, best.designF))) best = { on, designF, tier };
   }
-  return best;
+  return best!;
 }
 
-/** Installed kvar within the slack of the least counts as equal; then fewer units, then the finer step. */
+/**
+ * Best tier first. Short of the target (tiers 3, 4) the design closest to the
+ * limit matters most, past it (5) the smallest: builds within 1 % of that count
+ * as equal. Then installed kvar within the slack of the least counts as equal,
+ * then fewer units, then the finer step.
+ */
 function pickBest(candidates: readonly Candidate[]): Candidate | null {
   if (!candidates.length) return null;
-  const inWindow = candidates.filter((c) => c.withinWindow);
-  const pool = inWindow.length ? inWindow : candidates;
+  const tier = Math.min(...candidates.map((c) => c.tier));
+  let pool = candidates.filter((c) => c.tier === tier);
+  if (tier === 3 || tier === 4) {
+    const largest = Math.max(...pool.map((c) => c.designF));
+    pool = pool.filter((c) => c.designF >= 0.99 * largest);
+  } else if (tier === 5) {
+    const smallest = Math.min(...pool.map((c) => c.designF));
+    pool = pool.filter((c) => c.designF <= 1.01 * smallest);
+  }
   const least = Math.min(...pool.map((c) => c.installedKvar));
   const near = pool.filter((c) => c.installedKvar <= least * (1 + CORRECTION_DEFAULTS.selectionKvarSlackPercent / 100) + 1e-12);
   const stepF = (c: Candidate) => c.stepBase * unitCapacitanceF(c.unit);
@@ -128,44 +174,30 @@ function pickBest(candidates: readonly Candidate[]): Candidate | null {
   });
 }
 
-function candidatesFor(
-  usable: ResolvedSelectOptions['units'],
-  multipliers: readonly number[],
-  need: { minF: number; maxF: number | null; fixedMaxF: number },
-  maxUnits: number,
-): Candidate | null {
+function candidatesFor(usable: ResolvedSelectOptions['units'], multipliers: readonly number[], need: Need, maxUnits: number): Candidate | null {
   const stepSum = multipliers.reduce((a, b) => a + b, 0);
   const all: Candidate[] = [];
   for (const { unit, index } of usable) {
     const cu = unitCapacitanceF(unit);
-    const make = (fixedUnits: number, stepBase: number): Candidate => {
-      const fixedF = fixedUnits * cu;
-      const stepsOn = stepBase === 0 ? multipliers.map(() => false) : stepsToSwitch(multipliers, stepBase * cu, fixedF, need.minF);
-      const designF = fixedF + stepBase * cu * multipliers.reduce((s, m, i) => s + (stepsOn[i] ? m : 0), 0);
+    const add = (fixedUnits: number, stepBase: number) => {
       const units = fixedUnits + stepBase * stepSum;
-      return {
-        unit,
-        index,
-        fixedUnits,
-        stepBase,
-        stepsOn,
-        designF,
-        installedKvar: units * unit.ratedKvar,
-        units,
-        withinWindow: need.maxF === null || designF <= need.maxF * (1 + 1e-12),
-      };
+      if (units < 1 || units > maxUnits) return;
+      const state = bestState(multipliers, stepBase * cu, fixedUnits * cu, need);
+      all.push({ unit, index, fixedUnits, stepBase, stepsOn: state.on, designF: state.designF, installedKvar: units * unit.ratedKvar, units, tier: state.tier });
     };
+    // Unit counts that reach each end of the window, and the one just below the limit.
+    const counts = (f: number | null, perCount: number) => (f === null ? [] : [Math.ceil(f / perCount - 1e-9), Math.floor(f / perCount + 1e-9)]);
     if (stepSum === 0) {
-      const c = make(Math.max(1, Math.ceil(need.minF / cu - 1e-9)), 0);
-      if (c.units <= maxUnits) all.push(c);
+      for (const n of new Set([...counts(need.minF, cu), ...counts(need.nominalF, cu), ...counts(need.maxF, cu), ...counts(need.limitF, cu)])) add(n, 0);
       continue;
     }
     const fixedMax = Math.min(maxUnits, Math.floor(need.fixedMaxF / cu + 1e-9));
     for (let j = 0; j <= fixedMax; j++) {
-      const remaining = need.minF - j * cu;
-      const k = remaining <= need.minF * 1e-12 ? 0 : Math.ceil(remaining / (stepSum * cu) - 1e-9);
-      const c = make(j, k);
-      if (c.units >= 1 && c.units <= maxUnits) all.push(c);
+      const rest = (f: number | null) => (f === null ? null : Math.max(0, f - j * cu));
+      const ks = new Set(
+        [rest(need.minF), rest(need.nominalF), rest(need.maxF), rest(need.limitF)].flatMap((f) => counts(f, stepSum * cu)).filter((k) => k >= 0),
+      );
+      for (const k of ks) add(j, k);
     }
   }
   return pickBest(all);
@@ -203,7 +235,8 @@ export function selectBankUnits(sized: SizedEquipment, options?: SelectBankUnits
     const requiredRatedV = highestVoltageV * (1 + opts.margin);
     const requiredF = b.element === 'capacitor' ? b.susceptanceS / omega : 0;
     const minF = requiredF / (1 - opts.minus);
-    const maxF = b.limitSusceptanceS !== null && b.element === 'capacitor' ? b.limitSusceptanceS / omega / (1 + opts.plus) : null;
+    const limitF = b.limitSusceptanceS !== null && b.element === 'capacitor' ? Math.max(b.limitSusceptanceS, 0) / omega : null;
+    const maxF = limitF === null ? null : limitF / (1 + opts.plus);
     const lightLimit = light ? Math.max(0, light.limitSusceptanceS ?? light.susceptanceS) : 0;
     const fixedMaxF = Math.min(lightLimit / omega / (1 + opts.plus), minF);
     const empty = (): BranchSelection => {
@@ -222,13 +255,16 @@ export function selectBankUnits(sized: SizedEquipment, options?: SelectBankUnits
       short.push({ branch: b.branch, neededV: requiredRatedV });
       return empty();
     }
-    let chosen = candidatesFor(usable, multipliers, { minF, maxF, fixedMaxF }, opts.maxUnits);
+    const need: Need = { nominalF: requiredF, minF, maxF, limitF, fixedMaxF };
+    let chosen = candidatesFor(usable, multipliers, need, opts.maxUnits);
     if (!chosen) {
       warn('unit-count', warningText.unitCount(b.branch, opts.maxUnits), 'bank.maxUnitsPerBranch', null, opts.maxUnits);
-      chosen = candidatesFor(usable, multipliers, { minF, maxF, fixedMaxF }, Number.MAX_SAFE_INTEGER);
+      chosen = candidatesFor(usable, multipliers, need, Number.MAX_SAFE_INTEGER);
     }
     const c = chosen!;
-    if (!c.withinWindow) warn('tolerance-window', warningText.windowMissed(b.branch));
+    if (c.tier === 1 || c.tier === 2) warn('tolerance-window', warningText.windowMissed(b.branch));
+    if (c.tier === 3 || c.tier === 4) warn('units-below-target', warningText.unitsBelowTarget(b.branch));
+    if (c.tier === 5) warn('units-past-limit', warningText.unitsPastLimit(b.branch));
     if (c.unit.ratedHz !== sized.frequencyHz)
       warn('unit-frequency', warningText.unitFrequency(c.unit.name ?? `catalogue[${c.index}]`, c.unit.ratedHz, sized.frequencyHz), c.index === null ? null : `catalogue[${c.index}].ratedHz`, c.unit.ratedHz, sized.frequencyHz);
     const cu = unitCapacitanceF(c.unit);
@@ -265,7 +301,7 @@ export function selectBankUnits(sized: SizedEquipment, options?: SelectBankUnits
       requiredRatedV,
       designKvarAtAppliedV: designKvar,
       designCurrentA: c.designF * omega * b.appliedV,
-      withinWindow: c.withinWindow,
+      withinWindow: c.tier === 0,
     };
   });
   if (short.length) {

@@ -8,7 +8,12 @@ import { capacitanceUF, inductanceMH } from '../capacitorOutput.js';
 import type { EquipmentGroup } from '../equipment.js';
 import type { BeforeAfter, BranchSizing, LineComparison } from '../correctionResult.js';
 
-/** Branches whose output is below this, kvar, count as empty. */
+/**
+ * A branch below this fraction of the whole set's kvar (or below 1e-9 kvar)
+ * counts as empty: values that small are what an iterative solution leaves
+ * where the exact answer is zero, not something to build.
+ */
+const EMPTY_FRACTION = 1e-6;
 const EMPTY_KVAR = 1e-9;
 
 export const beforeAfter = (before: number, after: number): BeforeAfter => ({ before, after, change: after - before });
@@ -24,13 +29,15 @@ export function branchSizings(
   limits: readonly (number | null)[] = [],
 ): BranchSizing[] {
   const first = board.loads.length - groups.length;
+  const total = groups.reduce((sum, g) => sum + g.branches.reduce((t, b) => t + Math.abs(b.susceptanceS * b.vNominal ** 2) / 1000, 0), 0);
+  const empty = Math.max(EMPTY_KVAR, EMPTY_FRACTION * total);
   let k = 0;
   return groups.flatMap((group, g) =>
     group.branches.map((b, bi): BranchSizing => {
       const reading = result.loads[first + g]!.branches[bi]!;
       const v = reading.voltage.magnitude;
       const kvarAtNominalV = (b.susceptanceS * b.vNominal ** 2) / 1000;
-      const element = Math.abs(kvarAtNominalV) < EMPTY_KVAR ? 'none' : b.susceptanceS > 0 ? 'capacitor' : 'reactor';
+      const element = Math.abs(kvarAtNominalV) < empty ? 'none' : b.susceptanceS > 0 ? 'capacitor' : 'reactor';
       return {
         branch: b.branch,
         element,
