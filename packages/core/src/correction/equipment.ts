@@ -66,7 +66,12 @@ export function equipmentGroups(
   susceptances: readonly number[],
   fixedSusceptances: readonly number[] = susceptances,
 ): EquipmentGroup[] {
-  const branches = slots.map((s, i): EquipmentBranch => ({ ...s, susceptanceS: susceptances[i]!, fixedSusceptanceS: fixedSusceptances[i]! }));
+  // Below a microvar an element is rounding left by the iterations, not equipment:
+  // drop it, so an all-but-empty floating star does not leave a node hanging on nothing.
+  const clean = (b: number, v: number) => (Math.abs(b) * v * v < 1e-6 ? 0 : b);
+  const branches = slots.map(
+    (s, i): EquipmentBranch => ({ ...s, susceptanceS: clean(susceptances[i]!, s.vNominal), fixedSusceptanceS: clean(fixedSusceptances[i]!, s.vNominal) }),
+  );
   const isStar = (b: EquipmentBranch) => b.to === 'N' || b.to === 'star';
   const star = branches.filter(isStar);
   const delta = branches.filter((b) => !isStar(b));

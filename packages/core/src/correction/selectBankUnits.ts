@@ -117,8 +117,9 @@ interface Need {
  * How well a design state fits, best first:
  * 0 target at −tol and no lead at +tol; 1 target at nominal, no lead at +tol;
  * 2 target at nominal, no lead at nominal; 3 short of the target but no lead
- * at +tol; 4 short of the target, no lead at nominal; 5 past the limit.
- * Never leading comes before reaching the target.
+ * at +tol; 4 short of the target, no lead at nominal; 5 past the limit;
+ * 6 short of the target where no limit is known. Never leading comes before
+ * reaching the target.
  */
 function tierOf(designF: number, need: Need): number {
   const eps = 1e-12 * Math.max(need.nominalF, 1e-30);
@@ -129,11 +130,13 @@ function tierOf(designF: number, need: Need): number {
   if (designF >= need.nominalF - eps && underLimit) return 2;
   if (need.maxF !== null && underMax) return 3;
   if (need.limitF !== null && underLimit) return 4;
-  return 5;
+  if (need.limitF !== null) return 5;
+  return 6;
 }
 
-/** Within a tier: the smallest state that reaches the target; below it the largest; past the limit the smallest. */
-const tieBreak = (tier: number, designF: number) => (tier === 3 || tier === 4 ? -designF : designF);
+/** Short of the target (tiers 3, 4, 6) the largest state is best; otherwise the smallest that does the job. */
+const shortOfTarget = (tier: number) => tier === 3 || tier === 4 || tier === 6;
+const tieBreak = (tier: number, designF: number) => (shortOfTarget(tier) ? -designF : designF);
 
 /** The best switching state of a bank with these fixed and step capacitances. */
 function bestState(multipliers: readonly number[], stepF: number, fixedF: number, need: Need): { on: boolean[]; designF: number; tier: number } {
@@ -148,8 +151,8 @@ function bestState(multipliers: readonly number[], stepF: number, fixedF: number
 }
 
 /**
- * Best tier first. Short of the target (tiers 3, 4) the design closest to the
- * limit matters most, past it (5) the smallest: builds within 1 % of that count
+ * Best tier first. Short of the target (tiers 3, 4, 6) the largest design
+ * matters most, past the limit (5) the smallest: builds within 1 % of that count
  * as equal. Then installed kvar within the slack of the least counts as equal,
  * then fewer units, then the finer step.
  */
@@ -157,7 +160,7 @@ function pickBest(candidates: readonly Candidate[]): Candidate | null {
   if (!candidates.length) return null;
   const tier = Math.min(...candidates.map((c) => c.tier));
   let pool = candidates.filter((c) => c.tier === tier);
-  if (tier === 3 || tier === 4) {
+  if (shortOfTarget(tier)) {
     const largest = Math.max(...pool.map((c) => c.designF));
     pool = pool.filter((c) => c.designF >= 0.99 * largest);
   } else if (tier === 5) {
@@ -177,6 +180,9 @@ function pickBest(candidates: readonly Candidate[]): Candidate | null {
 function candidatesFor(usable: ResolvedSelectOptions['units'], multipliers: readonly number[], need: Need, maxUnits: number): Candidate | null {
   const stepSum = multipliers.reduce((a, b) => a + b, 0);
   const all: Candidate[] = [];
+  // Building nothing is a candidate too: better than a single unit that makes a line lead.
+  const first = usable[0]!;
+  all.push({ unit: first.unit, index: first.index, fixedUnits: 0, stepBase: 0, stepsOn: multipliers.map(() => false), designF: 0, installedKvar: 0, units: 0, tier: tierOf(0, need) });
   for (const { unit, index } of usable) {
     const cu = unitCapacitanceF(unit);
     const add = (fixedUnits: number, stepBase: number) => {
@@ -240,12 +246,28 @@ export function selectBankUnits(sized: SizedEquipment, options?: SelectBankUnits
     const lightLimit = light ? Math.max(0, light.limitSusceptanceS ?? light.susceptanceS) : 0;
     const fixedMaxF = Math.min(lightLimit / omega / (1 + opts.plus), minF);
     const empty = (): BranchSelection => {
-      designB.push(b.susceptanceS);
-      fixedB.push(b.susceptanceS);
+      // A reactor stays as sized (continuous); an empty branch is built as nothing.
+      const reactor = b.element === 'reactor';
+      designB.push(reactor ? b.susceptanceS : 0);
+      fixedB.push(reactor ? b.susceptanceS : 0);
       return {
-        branch: b.branch, unit: null, fixedUnits: 0, stepUnits: [], stepsOnAtDesign: [], installedUnits: 0, installedKvar: 0,
-        requiredCapacitanceUF: 0, minimumCapacitanceUF: 0, maximumCapacitanceUF: null, fixedCapacitanceUF: 0, designCapacitanceUF: 0,
-        highestVoltageV, requiredRatedV, designKvarAtAppliedV: b.kvarAtAppliedV, designCurrentA: b.currentA, withinWindow: true,
+        branch: b.branch,
+        unit: null,
+        fixedUnits: 0,
+        stepUnits: [],
+        stepsOnAtDesign: [],
+        installedUnits: 0,
+        installedKvar: 0,
+        requiredCapacitanceUF: requiredF * 1e6,
+        minimumCapacitanceUF: minF * 1e6,
+        maximumCapacitanceUF: maxF === null ? null : maxF * 1e6,
+        fixedCapacitanceUF: 0,
+        designCapacitanceUF: 0,
+        highestVoltageV,
+        requiredRatedV,
+        designKvarAtAppliedV: reactor ? b.kvarAtAppliedV : 0,
+        designCurrentA: reactor ? b.currentA : 0,
+        withinWindow: requiredF === 0,
       };
     };
     if (b.element !== 'capacitor') return empty();
@@ -263,8 +285,9 @@ export function selectBankUnits(sized: SizedEquipment, options?: SelectBankUnits
     }
     const c = chosen!;
     if (c.tier === 1 || c.tier === 2) warn('tolerance-window', warningText.windowMissed(b.branch));
-    if (c.tier === 3 || c.tier === 4) warn('units-below-target', warningText.unitsBelowTarget(b.branch));
+    if (shortOfTarget(c.tier)) warn('units-below-target', warningText.unitsBelowTarget(b.branch));
     if (c.tier === 5) warn('units-past-limit', warningText.unitsPastLimit(b.branch));
+    if (c.units === 0) return empty();
     if (c.unit.ratedHz !== sized.frequencyHz)
       warn('unit-frequency', warningText.unitFrequency(c.unit.name ?? `catalogue[${c.index}]`, c.unit.ratedHz, sized.frequencyHz), c.index === null ? null : `catalogue[${c.index}].ratedHz`, c.unit.ratedHz, sized.frequencyHz);
     const cu = unitCapacitanceF(c.unit);

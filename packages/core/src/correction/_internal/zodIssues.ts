@@ -41,7 +41,7 @@ export function inputIssuesFromZod(issues: readonly core.$ZodIssue[], root: unkn
       return issue.keys.map((key) => inputIssue('unknown_key', formatPath([...path, key]), 'only the documented keys', key));
     const received = valueAt(root, issue.path);
     const code =
-      issue.code === 'invalid_type' && received === undefined
+      (issue.code === 'invalid_type' || issue.code === 'invalid_value') && received === undefined
         ? 'missing'
         : issue.code === 'too_small' || issue.code === 'too_big'
           ? 'out_of_range'
