@@ -49,8 +49,7 @@ const buildable = (sizing: BankSizing | CompensatorSizing): SizedEquipment => (s
  */
 export function correctBoard(board: Board, spec: unknown): CorrectionReport {
   const parsed = parseCorrectionSpec(spec, board);
-  const compensator = parsed.arrangement === 'balancing-compensator';
-  const target = resolveTarget(parsed.target, board, compensator);
+  const target = resolveTarget(parsed.target, board, parsed.arrangement);
   const sizing = sizeArrangement(board, parsed);
   const sized = buildable(sizing);
   const needsUnits = sizing.status !== 'already-meets-target' && sized.branches.some((b) => b.element === 'capacitor');

@@ -9,7 +9,7 @@
  */
 import type { Board, PhaseId } from '../board/boardModel.js';
 import type { BoardResult, PowerFactorSense } from '../analysis/boardResult.js';
-import type { TargetDefinition, TargetSpec } from './correctionSpec.js';
+import type { Arrangement, TargetDefinition, TargetSpec } from './correctionSpec.js';
 import { CORRECTION_DEFAULTS } from './correctionDefaults.js';
 import { TARGET_STATEMENTS, targetShortfall } from './correctionWording.js';
 
@@ -33,8 +33,13 @@ export const TARGET_SLACK = 1e-9;
 
 const tanOfPf = (pf: number): number => Math.sqrt(Math.max(0, 1 - pf * pf)) / pf;
 
-/** Fills the defaults of a target for a board and an arrangement (a compensator defaults to PF1+). */
-export function resolveTarget(spec: TargetSpec | undefined, board: Board, compensator = false): ResolvedTarget {
+/**
+ * Fills the defaults of a target for a board and an arrangement (a balancing
+ * compensator defaults to the positive-sequence PF, the banks to per-line).
+ * @example resolveTarget({ pf: 0.9 }, board).definition //=> 'per-line'
+ */
+export function resolveTarget(spec: TargetSpec | undefined, board: Board, arrangement: Arrangement = 'star-bank'): ResolvedTarget {
+  const compensator = arrangement === 'balancing-compensator';
   const definition: TargetDefinition = spec?.definition ?? (compensator ? CORRECTION_DEFAULTS.compensatorDefinition : CORRECTION_DEFAULTS.definition);
   const pf = spec?.pf ?? CORRECTION_DEFAULTS.pf;
   const leading = spec?.leading ?? CORRECTION_DEFAULTS.leading;

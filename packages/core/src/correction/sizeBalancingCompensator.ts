@@ -67,7 +67,7 @@ function resolveCompensatorOptions(board: Board, input: CompensatorOptions | und
   const w = options.weights ?? {};
   const defaults = CORRECTION_DEFAULTS.compensatorWeights;
   return {
-    target: resolveTarget(options.target, board, true),
+    target: resolveTarget(options.target, board, 'balancing-compensator'),
     branches: options.branches ?? (board.hasNeutral && !board.neutralOpen ? 'delta-and-star' : 'delta'),
     weights: {
       negativeSequence: w.negativeSequence ?? defaults.negativeSequence,

@@ -80,13 +80,14 @@ function voltageRise(board: Board, capacitorKvar: number, before: BoardResult, a
  * @throws {NumericalError} if a solve fails
  * @example
  * const v = verifyCorrection(board, { equipment: selection.equipment, lightLoad: { fraction: 0.25 } });
- * v.check.met //=> true
+ * v.check.met //=> true when the built bank meets the target
+ * v.lightLoad?.leadingLines //=> [] when the fixed part keeps every line lagging at light load
  */
 export function verifyCorrection(board: Board, options: VerifyCorrectionOptions): CorrectionVerification {
   const opts = parseOptions(verifyOptionsSchema, options, 'verifyCorrection options');
   const arrangement = opts.arrangement ?? 'star-bank';
   checkRules(definedOnly({ arrangement, target: opts.target, lightLoad: opts.lightLoad }), board, 'verifyCorrection options');
-  const target = resolveTarget(opts.target, board, arrangement === 'balancing-compensator');
+  const target = resolveTarget(opts.target, board, arrangement);
   const minus = (opts.capacitanceTolerance?.minusPercent ?? CORRECTION_DEFAULTS.capacitanceTolerance.minusPercent) / 100;
   const plus = (opts.capacitanceTolerance?.plusPercent ?? CORRECTION_DEFAULTS.capacitanceTolerance.plusPercent) / 100;
   const riseLimit = opts.voltageRiseLimitPercent ?? CORRECTION_DEFAULTS.voltageRiseLimitPercent;

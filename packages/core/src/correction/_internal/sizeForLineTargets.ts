@@ -10,8 +10,9 @@
  * where s is the worst shortfall (per unit of the line's apparent power w_ℓ):
  * zero when the targets can be met, otherwise the LP returns the bank that
  * comes closest. The LP is re-solved around its answer until x stops moving;
- * on an ideal source the board is linear in x and one step is exact. If even the
- * lower bounds cannot hold (a line already leads), they are relaxed by s too.
+ * on an ideal source the board is linear in x and one step is exact. Should the
+ * lower bounds have no common solution at all, they are relaxed by s as well
+ * (lines that already lead get their present τ as bound beforehand, see `lineBands`).
  */
 import { solveLinearProgram } from './linearProgram.js';
 import { maxAbs } from './realMatrix.js';
