@@ -6,7 +6,9 @@ import { runSolve } from './commands/solve.js';
 import { runSchema } from './commands/schema.js';
 import { runCorrect, type CorrectCommandOptions } from './commands/correct.js';
 
-export const VERSION = '0.1.0';
+import packageJson from '../package.json' with { type: 'json' };
+
+export const VERSION: string = packageJson.version;
 
 const SOLVE_EXAMPLES = `
 Examples:
