@@ -5,7 +5,6 @@ import type { CliIo } from './io.js';
 import { runSolve } from './commands/solve.js';
 import { runSchema } from './commands/schema.js';
 import { runCorrect, type CorrectCommandOptions } from './commands/correct.js';
-
 import packageJson from '../package.json' with { type: 'json' };
 
 export const VERSION: string = packageJson.version;
@@ -45,10 +44,12 @@ function numberIn(min: number, max: number, what: string) {
   };
 }
 
-/** What `trivar correct` has to say through its exit code. */
-export let lastCorrectionStatus: string | null = null;
+/** What a command that ran to the end reports through the exit code (set by `correct`). */
+export interface RunOutcome {
+  exitCode: number;
+}
 
-export function createProgram(io: CliIo): Command {
+export function createProgram(io: CliIo, outcome: RunOutcome = { exitCode: EXIT.ok }): Command {
   const program = new Command('trivar');
   program
     .description('Exact phase, neutral and unbalance figures for low-voltage boards with uneven single-phase loads.')
@@ -85,7 +86,8 @@ export function createProgram(io: CliIo): Command {
     .addHelpText('after', CORRECT_EXAMPLES)
     .action(async (board: string, opts: CorrectCommandOptions) => {
       const report = await runCorrect(board, opts, io);
-      lastCorrectionStatus = report.status;
+      const missed = report.status === 'infeasible' || report.status === 'misses-target-with-available-units';
+      if (missed) outcome.exitCode = EXIT.targetNotMet;
     });
 
   program
@@ -98,12 +100,11 @@ export function createProgram(io: CliIo): Command {
 
 /** Runs the CLI on `argv` (user arguments only) and returns the exit code. */
 export async function runCli(argv: readonly string[], io: CliIo): Promise<number> {
-  const program = createProgram(io);
+  const outcome: RunOutcome = { exitCode: EXIT.ok };
+  const program = createProgram(io, outcome);
   try {
-    lastCorrectionStatus = null;
     await program.parseAsync(argv as string[], { from: 'user' });
-    const missed = lastCorrectionStatus === 'infeasible' || lastCorrectionStatus === 'misses-target-with-available-units';
-    return missed ? EXIT.targetNotMet : EXIT.ok;
+    return outcome.exitCode;
   } catch (error) {
     if (error instanceof CommanderError) {
       // Help and version exit "successfully" through commander's override.
