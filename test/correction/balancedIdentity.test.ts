@@ -61,4 +61,18 @@ describe('balanced board, ideal source: Q = P·(tan φ1 − tan φ2) per phase (
       expect(relativeError(b.kvarAtNominalV, P_PER_PHASE_KW * (tan(PF_BEFORE) - tan(target)))).toBeLessThan(1e-9);
     });
   });
+
+  it('the selection window: up to the upper lagging bound, or to the lowest leading PF when leading is allowed (PFC identity)', () => {
+    const bounded = sizeStarBank(fourWire, { target: { pf: 0.9, maxLaggingPf: 0.98 } });
+    const allowed = sizeStarBank(fourWire, { target: { pf: 0.9, leading: 'allowed', minLeadingPf: 0.95 } });
+    const never = sizeStarBank(fourWire, { target: { pf: 0.9 } });
+    const kvarOfB = (b: number) => (b * (400 / Math.sqrt(3)) ** 2) / 1000;
+    for (let k = 0; k < 3; k++) {
+      // The minimum is the same in all three; only the top of the window moves.
+      expect(relativeError(bounded.branches[k]!.kvarAtNominalV, P_PER_PHASE_KW * (tan(PF_BEFORE) - tan(0.9)))).toBeLessThan(1e-9);
+      expect(relativeError(kvarOfB(bounded.branches[k]!.limitSusceptanceS!), P_PER_PHASE_KW * (tan(PF_BEFORE) - tan(0.98)))).toBeLessThan(1e-9);
+      expect(relativeError(kvarOfB(never.branches[k]!.limitSusceptanceS!), P_PER_PHASE_KW * tan(PF_BEFORE))).toBeLessThan(1e-9);
+      expect(relativeError(kvarOfB(allowed.branches[k]!.limitSusceptanceS!), P_PER_PHASE_KW * (tan(PF_BEFORE) + tan(0.95)))).toBeLessThan(1e-9);
+    }
+  });
 });

@@ -92,6 +92,33 @@ describe('correctBoard on an uneven 4-wire board behind a 160 kVA transformer', 
   });
 });
 
+describe('correctBoard on single-phase and split-phase boards', () => {
+  it('split-phase 120/240 V, 60 Hz: one capacitor per half, line-to-neutral', () => {
+    const board = makeBoard(
+      'split-phase',
+      [
+        { name: 'well pump', connection: 'A-N', kW: 1.2, pf: 0.7 },
+        { name: 'shop compressor', connection: 'B-N', kW: 1.5, pf: 0.75 },
+      ],
+      { lineToNeutral: 120, frequencyHz: 60 },
+    );
+    const report = correctBoard(board, { arrangement: 'star-bank', target: { pf: 0.95 } });
+    expect(report.sizing.branches.map((b) => b.branch)).toEqual(['A-N', 'B-N']);
+    expect(report.verification.check.leadingLines).toEqual([]);
+    // The lowest typical 60 Hz rating is 240 V: at 120 V a unit gives a quarter of its rating.
+    for (const s of report.selection!.selections) if (s.unit) expectClose(s.unit.outputKvar, s.unit.ratedKvar * (s.highestVoltageV / 240) ** 2, { rel: 0.02, abs: 0 }, 'output');
+    expectPlainData(report);
+  });
+
+  it('single-phase 230 V: a board-wide vector target', () => {
+    const board = makeBoard('single-phase', [{ name: 'cold counter', connection: 'A-N', kW: 2, pf: 0.72 }]);
+    const report = correctBoard(board, { arrangement: 'star-bank', target: { pf: 0.9, definition: 'vector' } });
+    expect(report.sizing.status).toBe('meets-target');
+    const tan = (pf: number) => Math.sqrt(1 - pf * pf) / pf;
+    expectClose(report.sizing.branches[0]!.kvarAtNominalV, 2 * (tan(0.72) - tan(0.9)), { rel: 1e-9, abs: 0 }, 'PFC identity');
+  });
+});
+
 describe('verifyCorrection: voltage rise and resonance of a bank on a transformer', () => {
   // 300 kvar on a 1000 kVA, 6 % transformer: ΔV/V ≈ Qc/S_sc ≈ 1.8 % (IEEE Std 1036, from memory);
   // h_r = √(S_sc/Q_C) (methods notes §5).
