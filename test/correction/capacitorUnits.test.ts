@@ -31,10 +31,10 @@ describe('capacitor output follows the square law (methods notes §4)', () => {
     expectClose(out.capacitanceUF, 198.94367886, { rel: 1e-9, abs: 0 }, 'µF (worked)');
   });
 
-  it('the typical list holds the rated voltages of the methods notes, each unit marked typical', () => {
+  it('the typical list holds the rated voltages of the methods notes (plus 280 V for 230 V star banks), each unit marked typical', () => {
     const volts50 = [...new Set(TYPICAL_CAPACITOR_UNITS.filter((u) => u.ratedHz === 50).map((u) => u.ratedV))];
     const volts60 = [...new Set(TYPICAL_CAPACITOR_UNITS.filter((u) => u.ratedHz === 60).map((u) => u.ratedV))];
-    expect(volts50).toEqual([400, 415, 440, 480, 525, 690]);
+    expect(volts50).toEqual([280, 400, 415, 440, 480, 525, 690]);
     expect(volts60).toEqual([240, 480, 600]);
     for (const u of TYPICAL_CAPACITOR_UNITS) expect(u.name).toMatch(/^typical /);
   });
@@ -82,17 +82,22 @@ describe('choosing units for a bank', () => {
     });
   });
 
-  it('a star bank needs units rated for V_LN plus margin; units rated far above it are flagged as under-used', () => {
+  it('a star bank needs units rated for V_LN plus margin: 280 V units at 230.9 V, output by the square law', () => {
     const sizing = sizeStarBank(board, { target: { pf: 0.95 } });
     const selection = selectBankUnits(sizing, {});
     expect(selection.catalogue).toBe('typical');
     expect(selection.catalogueNote).toMatch(/not any vendor/);
     for (const s of selection.selections) {
       expect(s.requiredRatedV).toBeCloseTo(1.1 * s.highestVoltageV, 9);
-      // The lowest typical 50 Hz rating is 400 V; at 230.9 V a unit gives (230.9/V_r)² of its rating.
-      expect(s.unit!.ratedV).toBeGreaterThanOrEqual(400);
+      // 230.9 V × 1.10 = 254 V: the lowest typical 50 Hz rating that covers it is 280 V.
+      expect(s.unit!.ratedV).toBe(280);
       expectClose(s.unit!.outputKvar, s.unit!.ratedKvar * (sizing.branches[0]!.appliedV / s.unit!.ratedV) ** 2, { rel: 1e-12, abs: 0 }, 'unit output');
     }
+  });
+
+  it('units rated far above the applied voltage are flagged as under-used', () => {
+    const sizing = sizeStarBank(board, { target: { pf: 0.95 } });
+    const selection = selectBankUnits(sizing, { catalogue: [{ ratedKvar: 2.5, ratedV: 440, ratedHz: 50 }] });
     expect(selection.warnings.map((w) => w.code)).toContain('unit-underused');
   });
 

@@ -3,52 +3,12 @@
  * `validateBoard` returns a result; `parseBoard` throws an `InputError`.
  */
 import { parseDocument } from 'yaml';
-import type { core } from 'zod';
-import { formatPath, InputError, inputIssue, type InputIssue } from '../errors.js';
+import { InputError, inputIssue, type InputIssue } from '../errors.js';
+import { inputIssuesFromZod } from '../_internal/zodIssues.js';
 import { boardSchema, type BoardSpec } from './boardSchema.js';
 import { BOARD_RULES } from './boardRules.js';
 
 export type BoardValidation = { ok: true; board: BoardSpec } | { ok: false; issues: InputIssue[] };
-
-/** What a schema field accepts, for messages: taken from the schema's own descriptions. */
-function expectedFor(issue: core.$ZodIssue): string {
-  switch (issue.code) {
-    case 'invalid_type':
-      return issue.expected === 'object' ? 'an object' : issue.expected === 'array' ? 'a list' : `a ${issue.expected}`;
-    case 'invalid_value':
-      return `one of ${issue.values.map((v) => JSON.stringify(v)).join(', ')}`;
-    case 'too_small':
-      if (issue.origin === 'array') return `at least ${String(issue.minimum)} item(s)`;
-      if (issue.origin === 'string') return 'a non-empty text';
-      return `a number ${issue.inclusive ? '>=' : '>'} ${String(issue.minimum)}`;
-    case 'too_big':
-      return `a number ${issue.inclusive ? '<=' : '<'} ${String(issue.maximum)}`;
-    case 'unrecognized_keys':
-      return 'only the documented keys (see the board JSON Schema)';
-    default:
-      return issue.message;
-  }
-}
-
-function valueAt(root: unknown, path: readonly PropertyKey[]): unknown {
-  let node: unknown = root;
-  for (const key of path) {
-    if (node === null || typeof node !== 'object') return undefined;
-    node = (node as Record<PropertyKey, unknown>)[key];
-  }
-  return node;
-}
-
-function toInputIssues(issue: core.$ZodIssue, root: unknown): InputIssue[] {
-  if (issue.code === 'unrecognized_keys') {
-    return issue.keys.map((key) =>
-      inputIssue('unknown_key', formatPath([...issue.path, key]), 'only the documented keys (see the board JSON Schema)', key),
-    );
-  }
-  const received = valueAt(root, issue.path);
-  const code = issue.code === 'invalid_type' && received === undefined ? 'missing' : issue.code === 'too_small' || issue.code === 'too_big' ? 'out_of_range' : issue.code;
-  return [inputIssue(code, formatPath(issue.path), expectedFor(issue), received)];
-}
 
 /**
  * Checks an already-parsed board object (from JSON, YAML or code).
@@ -56,7 +16,7 @@ function toInputIssues(issue: core.$ZodIssue, root: unknown): InputIssue[] {
  */
 export function validateBoard(input: unknown): BoardValidation {
   const parsed = boardSchema.safeParse(input);
-  if (!parsed.success) return { ok: false, issues: parsed.error.issues.flatMap((i) => toInputIssues(i, input)) };
+  if (!parsed.success) return { ok: false, issues: inputIssuesFromZod(parsed.error.issues, input) };
   const issues = BOARD_RULES.flatMap((rule) => rule(parsed.data));
   return issues.length ? { ok: false, issues } : { ok: true, board: parsed.data };
 }

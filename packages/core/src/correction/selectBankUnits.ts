@@ -26,7 +26,7 @@ import { TYPICAL_CAPACITOR_UNITS } from './typicalCapacitorUnits.js';
 import type { EquipmentBranch, EquipmentGroup } from './equipment.js';
 import type { BankSelection, BranchSelection, BranchSizing, CorrectionWarning, SizedEquipment } from './correctionResult.js';
 import { selectionWording, warningText } from './correctionWording.js';
-import { parseOptions } from './_internal/zodIssues.js';
+import { parseOptions } from '../_internal/zodIssues.js';
 import { candidatesFor, shortOfTarget, type Need, type UsableUnit } from './_internal/bankBuilds.js';
 
 export interface SelectBankUnitsOptions {

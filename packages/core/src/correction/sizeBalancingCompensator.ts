@@ -17,7 +17,7 @@ import { deltaSlots, starSlots } from './equipment.js';
 import type { CompensatorSizing, CompensatorSolution, CorrectionWarning } from './correctionResult.js';
 import { compensatorWording, infeasibleReason, warningText } from './correctionWording.js';
 import { checkRules, definedOnly, maxIterationsSchema, solveOptionsSchema } from './_internal/optionSchemas.js';
-import { parseOptions } from './_internal/zodIssues.js';
+import { parseOptions } from '../_internal/zodIssues.js';
 import { createProbe, type ProbeState } from './_internal/boardProbe.js';
 import { branchSizings, lineComparisons } from './_internal/branchReadings.js';
 import { compensatorResidual, residualWeights, type ResidualBases } from './_internal/compensatorResidual.js';

@@ -11,7 +11,7 @@ import { resolveTarget } from './correctionTarget.js';
 import { starSlots } from './equipment.js';
 import type { BankSizing } from './correctionResult.js';
 import { checkRules, definedOnly, maxIterationsSchema, solveOptionsSchema } from './_internal/optionSchemas.js';
-import { parseOptions } from './_internal/zodIssues.js';
+import { parseOptions } from '../_internal/zodIssues.js';
 import { sizeBank, type ResolvedBankOptions } from './_internal/sizeBank.js';
 
 export interface StarBankOptions {

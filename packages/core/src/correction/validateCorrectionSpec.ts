@@ -7,7 +7,7 @@ import type { Board } from '../board/boardModel.js';
 import { InputError, type InputIssue } from '../errors.js';
 import { correctionSpecSchema, type CorrectionSpec } from './correctionSpec.js';
 import { CORRECTION_RULES } from './correctionRules.js';
-import { inputIssuesFromZod } from './_internal/zodIssues.js';
+import { inputIssuesFromZod } from '../_internal/zodIssues.js';
 
 export type CorrectionSpecValidation = { ok: true; spec: CorrectionSpec } | { ok: false; issues: InputIssue[] };
 

@@ -19,7 +19,7 @@ import type { CorrectionVerification, CorrectionWarning, LightLoadCheck, Voltage
 import { warningText } from './correctionWording.js';
 import { beforeAfter, branchSizings, lineComparisons } from './_internal/branchReadings.js';
 import { checkRules, definedOnly, solveOptionsSchema } from './_internal/optionSchemas.js';
-import { parseOptions } from './_internal/zodIssues.js';
+import { parseOptions } from '../_internal/zodIssues.js';
 
 export interface VerifyCorrectionOptions {
   /** The equipment to add, e.g. `selection.equipment` or `sizing.equipment`. */

@@ -1,10 +1,10 @@
 /**
- * zod issues → trivar `InputIssue`s (code, field path, received, expected),
- * for the correction spec and the options of each public correction function.
- * Mirrors the wording of board-file validation.
+ * zod issues → trivar `InputIssue`s (code, field path, received, expected):
+ * the one translation used by board files, correction studies and the options
+ * of public functions, so every input error reads the same way.
  */
 import type { core, ZodType } from 'zod';
-import { formatPath, InputError, inputIssue, type InputIssue } from '../../errors.js';
+import { formatPath, InputError, inputIssue, type InputIssue } from '../errors.js';
 
 function expectedFor(issue: core.$ZodIssue): string {
   switch (issue.code) {
@@ -19,7 +19,7 @@ function expectedFor(issue: core.$ZodIssue): string {
     case 'too_big':
       return `a number ${issue.inclusive ? '<=' : '<'} ${String(issue.maximum)}`;
     case 'unrecognized_keys':
-      return 'only the documented keys';
+      return 'only the documented keys (see the board JSON Schema)';
     default:
       return issue.message;
   }
@@ -38,7 +38,7 @@ export function inputIssuesFromZod(issues: readonly core.$ZodIssue[], root: unkn
   return issues.flatMap((issue) => {
     const path = [...prefix, ...issue.path];
     if (issue.code === 'unrecognized_keys')
-      return issue.keys.map((key) => inputIssue('unknown_key', formatPath([...path, key]), 'only the documented keys', key));
+      return issue.keys.map((key) => inputIssue('unknown_key', formatPath([...path, key]), 'only the documented keys (see the board JSON Schema)', key));
     const received = valueAt(root, issue.path);
     const code =
       (issue.code === 'invalid_type' || issue.code === 'invalid_value') && received === undefined
