@@ -7,7 +7,7 @@
 import { describe, expect, it } from 'vitest';
 import { sizeDeltaBank, sizeStarBank, type TargetDefinition } from '@trivar/core';
 import { makeBoard } from './support/boards.js';
-import { relativeError } from './support/tolerance.js';
+import { relativeError } from '../support/tolerance.js';
 
 const P_PER_PHASE_KW = 30;
 const PF_BEFORE = 0.8;

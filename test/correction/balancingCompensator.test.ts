@@ -6,7 +6,7 @@
 import { describe, expect, it } from 'vitest';
 import { sizeBalancingCompensator, solveBoardModel, type CompensatorSolution } from '@trivar/core';
 import { makeBoard, type LoadLine } from './support/boards.js';
-import { expectClose } from './support/tolerance.js';
+import { expectClose } from '../support/tolerance.js';
 
 const SQRT3 = Math.sqrt(3);
 const kvarOf = (s: CompensatorSolution, branch: string) => s.branches.find((b) => b.branch === branch)!.kvarAtNominalV;

@@ -7,7 +7,7 @@
 import { describe, expect, it } from 'vitest';
 import { capacitorOutput, selectBankUnits, sizeDeltaBank, sizeStarBank, TYPICAL_CAPACITOR_UNITS } from '@trivar/core';
 import { makeBoard } from './support/boards.js';
-import { expectClose } from './support/tolerance.js';
+import { expectClose } from '../support/tolerance.js';
 
 const exact = { rel: 1e-12, abs: 0 };
 

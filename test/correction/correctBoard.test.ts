@@ -6,7 +6,7 @@
 import { describe, expect, it } from 'vitest';
 import { correctBoard, solveBoardModel, verifyCorrection, type EquipmentGroup } from '@trivar/core';
 import { bakeryLoads, makeBoard } from './support/boards.js';
-import { expectClose } from './support/tolerance.js';
+import { expectClose } from '../support/tolerance.js';
 import { expectPlainData } from './support/plainData.js';
 
 const transformer = { kVA: 160, impedancePercent: 4, xOverR: 3 };

@@ -27,6 +27,9 @@ export function complexRelativeError(actual: ComplexValue, expected: ComplexValu
   return cAbs(cSub(actual, expected)) / Math.max(cAbs(expected), floor);
 }
 
+/** |a − e| / |e| for a quantity that is not zero (the figure a closing note quotes). */
+export const relativeError = (actual: number, expected: number): number => Math.abs(actual - expected) / Math.abs(expected);
+
 const describeTolerance = ({ rel, abs }: Tolerance) => `rel ${rel.toExponential(1)}, abs ${abs.toExponential(1)}`;
 
 /** Fails unless |actual − expected| ≤ abs + rel·|expected| (and both are finite). */
