@@ -75,6 +75,22 @@ describe('solveBoard: known answers on simple boards', () => {
   });
 });
 
+describe('low-voltage threshold of voltage-dependent loads', () => {
+  it('warns when a constant-power load is below 70 % and no longer draws its rating', () => {
+    const r = solveBoard({
+      supply: { system: 'single-phase', voltage: { lineToNeutral: 230 }, frequencyHz: 50, impedance: { r: 0.5, x: 0.2 } },
+      loads: [{ name: 'big', connection: 'A-N', kW: 30, pf: 0.95 }],
+    });
+    expect(r.loads[0]!.kW).toBeLessThan(30);
+    const w = r.warnings.find((x) => x.code === 'load-below-model-threshold');
+    expect(w?.threshold).toBe(70);
+    expect(w!.value).toBeCloseTo(r.loads[0]!.branches[0]!.voltagePercent, 9);
+    // Below the threshold the load is an impedance: P scales with V² from the threshold point.
+    const v = r.loads[0]!.branches[0]!.voltagePercent / 100;
+    expect(r.loads[0]!.kW).toBeCloseTo(30 * (v / 0.7) ** 2, 6);
+  });
+});
+
 describe('solveNetwork: numerical trouble is an error, not an answer', () => {
   const heavy = normaliseBoard(parseBoard({ supply: { ...supply4, impedance: { r: 0.5, x: 0.5 } }, loads: [{ name: 'h', connection: 'A-N', kW: 20, pf: 0.9 }] }));
   it('reports non-convergence with the iteration count', () => {

@@ -172,7 +172,13 @@ export function analyseSolution(solution: NetworkSolution): BoardResult {
     threePhase,
     sequence: seqV1 && seqI1 ? { V1: seqV1, I1: seqI1 } : null,
   });
-  const warnings = boardWarnings({ phases, neutral, unbalance, loads, lineRatingA: board.lineRatingA });
+  const belowThreshold = board.loads.flatMap((load, li) => {
+    const pu = Math.min(
+      ...load.branches.map((b, bi) => (b.zip.z === 1 || !solution.branches[li]![bi]!.energised ? Infinity : abs(solution.branches[li]![bi]!.voltage) / b.vNominal)),
+    );
+    return pu < solution.lowVoltageThreshold ? [{ name: load.name, pu, threshold: solution.lowVoltageThreshold }] : [];
+  });
+  const warnings = boardWarnings({ belowThreshold, phases, neutral, unbalance, loads, lineRatingA: board.lineRatingA });
   const cautions = [GENERAL_CAUTION];
   if (warnings.some((w) => w.code.startsWith('neutral'))) cautions.unshift(NEUTRAL_CAUTION);
   return {

@@ -14,6 +14,8 @@ export const WARNING_THRESHOLDS = {
 const fmt = (x: number, digits = 1) => x.toFixed(digits);
 
 export function boardWarnings(input: {
+  /** Loads whose current/power part fell below the solver's low-voltage threshold: name and lowest per-unit voltage. */
+  readonly belowThreshold: readonly { readonly name: string; readonly pu: number; readonly threshold: number }[];
   readonly phases: readonly PhaseReading[];
   readonly neutral: NeutralReading | null;
   readonly unbalance: UnbalanceReading | null;
@@ -66,6 +68,13 @@ export function boardWarnings(input: {
           threshold: 100 + Math.sign(dev) * band,
         });
     }
+  for (const b of input.belowThreshold)
+    out.push({
+      code: 'load-below-model-threshold',
+      message: `load "${b.name}" sees ${fmt(b.pu * 100)} % of its nominal voltage, below the ${fmt(b.threshold * 100, 0)} % at which its constant-current/constant-power part is taken as an impedance: it draws less than its rating here, and a real device may stall or trip`,
+      value: b.pu * 100,
+      threshold: b.threshold * 100,
+    });
   return out;
 }
 

@@ -72,6 +72,8 @@ export interface NetworkSolution {
   readonly iterations: number;
   /** Largest node-voltage change in the last iteration, fraction of nominal. */
   readonly lastChange: number;
+  /** The per-unit voltage below which current and power parts of loads were held as impedances. */
+  readonly lowVoltageThreshold: number;
 }
 
 export interface BranchState {
@@ -253,7 +255,7 @@ export function solveNetwork(board: Board, options?: SolveOptions): NetworkSolut
   }
   for (const v of step.voltages)
     if (v && !isFiniteComplex(v)) throw new NumericalError('non-finite', 'the solve produced a non-finite voltage; check for extreme impedance values');
-  return { board, topology: topo, nodeVoltages: step.voltages, lineCurrents, neutralCurrent, branches, iterations, lastChange };
+  return { board, topology: topo, nodeVoltages: step.voltages, lineCurrents, neutralCurrent, branches, iterations, lastChange, lowVoltageThreshold: opts.lowVoltageThreshold };
 }
 
 /** Voltage of a terminal in a solution (null when it is connected to nothing). */
