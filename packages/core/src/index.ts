@@ -43,7 +43,8 @@ export { sequenceComponents } from './analysis/symmetricalComponents.js';
 export { deviationFromAveragePercent, unbalanceFactorFromLineMagnitudes } from './analysis/unbalanceIndices.js';
 export type { BoardPowerDefinitions, ApparentPowerReading } from './analysis/powerDefinitions.js';
 export { boardPowerDefinitions, effectiveQuantities } from './analysis/powerDefinitions.js';
-export { analyseSolution, powerReading } from './analysis/analyseSolution.js';
+export { analyseSolution } from './analysis/analyseSolution.js';
+export { powerReading } from './analysis/powerReading.js';
 export { studyOpenNeutral } from './analysis/studyOpenNeutral.js';
 export { WARNING_THRESHOLDS } from './analysis/boardWarnings.js';
 

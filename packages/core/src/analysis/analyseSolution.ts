@@ -2,43 +2,17 @@
  * NetworkSolution → BoardResult: per-phase and per-load readings, symmetrical
  * components, unbalance, power definitions, losses, warnings.
  */
-import {
-  abs,
-  absSquared,
-  add,
-  conj,
-  mul,
-  scale,
-  sub,
-  sum,
-  toPhasor,
-  ZERO,
-  type ComplexValue,
-} from '../complex.js';
+import { abs, absSquared, add, conj, mul, scale, sub, sum, toPhasor, ZERO, type ComplexValue } from '../complex.js';
 import { isThreePhase } from '../board/systemTopology.js';
-import type { LoadBranch, PhaseId } from '../board/boardModel.js';
-import { terminalVoltage, type BranchState, type NetworkSolution } from '../network/solveNetwork.js';
+import type { PhaseId } from '../board/boardModel.js';
+import { terminalVoltage, type NetworkSolution } from '../network/solveNetwork.js';
 import { sequenceComponents } from './symmetricalComponents.js';
 import { deviationFromAveragePercent } from './unbalanceIndices.js';
 import { boardPowerDefinitions } from './powerDefinitions.js';
 import { boardWarnings, GENERAL_CAUTION, NEUTRAL_CAUTION } from './boardWarnings.js';
-import type {
-  BoardResult,
-  LineToLineReading,
-  LoadReading,
-  NeutralReading,
-  PhaseReading,
-  PowerReading,
-  UnbalanceReading,
-} from './boardResult.js';
-
-/** Power reading from complex power in VA. Q within 1e-9 of S counts as unity. */
-export function powerReading(s: ComplexValue): PowerReading {
-  const kVA = abs(s) / 1000;
-  const kvar = s.im / 1000;
-  const sense = Math.abs(s.im) <= 1e-9 * Math.max(abs(s), 1e-30) ? 'unity' : s.im > 0 ? 'lagging' : 'leading';
-  return { kW: s.re / 1000, kvar, kVA, pf: kVA === 0 ? 1 : Math.abs(s.re) / 1000 / kVA, sense };
-}
+import { readLoads } from './readLoads.js';
+import { powerReading } from './powerReading.js';
+import type { BoardResult, LineToLineReading, LossReading, NeutralReading, PhaseReading, UnbalanceReading } from './boardResult.js';
 
 const PAIRS: Record<string, readonly [PhaseId, PhaseId][]> = {
   'three-phase-4wire': [['A', 'B'], ['B', 'C'], ['C', 'A']],
@@ -47,30 +21,25 @@ const PAIRS: Record<string, readonly [PhaseId, PhaseId][]> = {
   'single-phase': [],
 };
 
-/** Current a load draws from one phase terminal: Σ of its branch currents leaving that terminal. */
-function lineCurrentOfLoad(branches: readonly LoadBranch[], states: readonly BranchState[], phase: PhaseId): ComplexValue {
-  let total = ZERO;
-  branches.forEach((b, k) => {
-    if (b.from === phase) total = add(total, states[k]!.current);
-    if (b.to === phase) total = sub(total, states[k]!.current);
-  });
-  return total;
-}
+const percentOf = (x: ComplexValue, base: ComplexValue) => (abs(base) === 0 ? 0 : (100 * abs(x)) / abs(base));
 
-export function analyseSolution(solution: NetworkSolution): BoardResult {
+/** Voltages of the board's phase buses to the source star point, and what line-to-neutral loads see. */
+function boardVoltages(solution: NetworkSolution) {
   const { board } = solution;
-  const ln = board.nominalLineToNeutralV;
-  const threePhase = isThreePhase(board.system);
-  const busVoltages = board.phases.map((p) => terminalVoltage(solution, p) ?? ZERO);
-  const lineCurrents = solution.lineCurrents;
+  const bus = board.phases.map((p) => terminalVoltage(solution, p) ?? ZERO);
   // Phase voltages are what line-to-neutral loads see: to the board neutral bar on a
   // 4-wire board, to the virtual neutral (centroid of the line voltages) on a 3-wire one.
   const neutralBar = board.hasNeutral ? terminalVoltage(solution, 'N') : null;
-  const reference = board.hasNeutral ? (neutralBar ?? ZERO) : scale(sum(busVoltages), 1 / busVoltages.length);
-  const phaseVoltages = busVoltages.map((v) => sub(v, reference));
-  const phases: PhaseReading[] = board.phases.map((phase, k) => {
+  const reference = board.hasNeutral ? (neutralBar ?? ZERO) : scale(sum(bus), 1 / bus.length);
+  return { bus, neutralBar, phase: bus.map((v) => sub(v, reference)) };
+}
+
+function readPhases(solution: NetworkSolution, bus: readonly ComplexValue[], phaseVoltages: readonly ComplexValue[]): PhaseReading[] {
+  const { board } = solution;
+  const ln = board.nominalLineToNeutralV;
+  return board.phases.map((phase, k) => {
     const v = phaseVoltages[k]!;
-    const i = lineCurrents[k]!;
+    const i = solution.lineCurrents[k]!;
     return {
       phase,
       voltage: toPhasor(v),
@@ -78,91 +47,81 @@ export function analyseSolution(solution: NetworkSolution): BoardResult {
       current: toPhasor(i),
       ...powerReading(mul(v, conj(i))),
       loadingPercent: board.lineRatingA ? (100 * abs(i)) / board.lineRatingA : null,
-      voltageDropPercent: (100 * (abs(board.emf[k]!) - abs(busVoltages[k]!))) / ln,
+      voltageDropPercent: (100 * (abs(board.emf[k]!) - abs(bus[k]!))) / ln,
     };
   });
-  const lineToLine: LineToLineReading[] = PAIRS[board.system]!.map(([p, q]) => {
-    const v = sub(busVoltages[board.phases.indexOf(p)]!, busVoltages[board.phases.indexOf(q)]!);
-    return { pair: `${p}-${q}`, voltage: toPhasor(v), voltagePercent: (100 * abs(v)) / (board.nominalLineToLineV ?? ln) };
-  });
-  const largestLine = Math.max(...lineCurrents.map(abs));
-  const neutral: NeutralReading | null =
-    solution.neutralCurrent === null
-      ? null
-      : {
-          current: toPhasor(solution.neutralCurrent),
-          barVoltage: neutralBar ? toPhasor(neutralBar) : null,
-          ratingA: board.neutralRatingA,
-          loadingPercent: board.neutralRatingA ? (100 * abs(solution.neutralCurrent)) / board.neutralRatingA : null,
-          percentOfLargestLine: largestLine === 0 ? 0 : (100 * abs(solution.neutralCurrent)) / largestLine,
-        };
+}
 
-  const loads: LoadReading[] = board.loads.map((load, li) => {
-    const states = solution.branches[li]!;
-    const branches = load.branches.map((b, bi) => {
-      const st = states[bi]!;
-      const s = mul(st.voltage, conj(st.current));
-      return {
-        from: b.from.startsWith('star:') ? 'star' : b.from,
-        to: b.to.startsWith('star:') ? 'star' : b.to,
-        voltage: toPhasor(st.voltage),
-        voltagePercent: (100 * abs(st.voltage)) / b.vNominal,
-        current: toPhasor(st.current),
-        kW: s.re / 1000,
-        kvar: s.im / 1000,
-      };
-    });
-    const total = sum(load.branches.map((_, bi) => mul(states[bi]!.voltage, conj(states[bi]!.current))));
-    const star = load.branches.find((b) => b.to.startsWith('star:'))?.to;
-    const starV = star ? terminalVoltage(solution, star) : null;
-    const busCentroid = scale(sum(busVoltages), 1 / busVoltages.length);
-    return {
-      name: load.name,
-      connection: load.connection,
-      model: load.model,
-      origin: load.origin,
-      branches,
-      ...powerReading(total),
-      currentA: Math.max(...board.phases.map((phase) => abs(lineCurrentOfLoad(load.branches, states, phase)))),
-      starPointShift: starV ? toPhasor(sub(starV, busCentroid)) : null,
-      energised: states.some((s) => s.energised),
-    };
+function readLineToLine(solution: NetworkSolution, bus: readonly ComplexValue[]): LineToLineReading[] {
+  const { board } = solution;
+  return PAIRS[board.system]!.map(([p, q]) => {
+    const v = sub(bus[board.phases.indexOf(p)]!, bus[board.phases.indexOf(q)]!);
+    return { pair: `${p}-${q}`, voltage: toPhasor(v), voltagePercent: (100 * abs(v)) / (board.nominalLineToLineV ?? board.nominalLineToNeutralV) };
   });
-  const loadTotal = sum(board.loads.flatMap((_, li) => solution.branches[li]!.map((s) => mul(s.voltage, conj(s.current)))));
+}
 
-  // Losses: line conductors carry the line currents; the neutral conductor its current.
-  const lineSq = lineCurrents.reduce((s, i) => s + absSquared(i), 0);
+function readNeutral(solution: NetworkSolution, neutralBar: ComplexValue | null): NeutralReading | null {
+  const { board, neutralCurrent } = solution;
+  if (neutralCurrent === null) return null;
+  const largestLine = Math.max(...solution.lineCurrents.map(abs));
+  return {
+    current: toPhasor(neutralCurrent),
+    barVoltage: neutralBar ? toPhasor(neutralBar) : null,
+    ratingA: board.neutralRatingA,
+    loadingPercent: board.neutralRatingA ? (100 * abs(neutralCurrent)) / board.neutralRatingA : null,
+    percentOfLargestLine: largestLine === 0 ? 0 : (100 * abs(neutralCurrent)) / largestLine,
+  };
+}
+
+/** Losses: line conductors carry the line currents, the neutral conductor its own current. */
+function readLosses(solution: NetworkSolution): LossReading {
+  const { board } = solution;
+  const lineSq = solution.lineCurrents.reduce((s, i) => s + absSquared(i), 0);
   const neutralSq = solution.neutralCurrent ? absSquared(solution.neutralCurrent) : 0;
-  const sourceLoss = scale(board.sourceImpedance, lineSq);
-  const feederLoss = scale(board.lineImpedance, lineSq);
-  const neutralLoss = board.neutralOpen ? ZERO : scale(board.neutralImpedance, neutralSq);
-  const lossTotal = add(add(sourceLoss, feederLoss), neutralLoss);
-  const sourcePower = sum(board.emf.map((e, k) => mul(e, conj(lineCurrents[k]!))));
+  const source = scale(board.sourceImpedance, lineSq);
+  const feeder = scale(board.lineImpedance, lineSq);
+  const neutral = board.neutralOpen ? ZERO : scale(board.neutralImpedance, neutralSq);
+  const total = add(add(source, feeder), neutral);
+  return { sourceKW: source.re / 1000, lineFeederKW: feeder.re / 1000, neutralKW: neutral.re / 1000, totalKW: total.re / 1000, totalKvar: total.im / 1000 };
+}
 
-  let sequences: BoardResult['sequences'] = null;
-  let unbalance: UnbalanceReading | null = null;
-  let seqV1: ComplexValue | null = null;
-  let seqI1: ComplexValue | null = null;
-  if (threePhase) {
-    const vs = sequenceComponents(phaseVoltages as [ComplexValue, ComplexValue, ComplexValue], board.sequence);
-    const is = sequenceComponents(lineCurrents as [ComplexValue, ComplexValue, ComplexValue], board.sequence);
-    seqV1 = vs.positive;
-    seqI1 = is.positive;
-    sequences = {
-      voltage: { zero: toPhasor(vs.zero), positive: toPhasor(vs.positive), negative: toPhasor(vs.negative) },
-      current: { zero: toPhasor(is.zero), positive: toPhasor(is.positive), negative: toPhasor(is.negative) },
-    };
-    const ratio = (x: ComplexValue, base: ComplexValue) => (abs(base) === 0 ? 0 : (100 * abs(x)) / abs(base));
-    unbalance = {
-      voltageFactorPercent: ratio(vs.negative, vs.positive),
-      zeroSequenceVoltagePercent: ratio(vs.zero, vs.positive),
-      lineVoltageRatePercent: deviationFromAveragePercent(lineToLine.map((l) => l.voltage.magnitude)),
-      phaseVoltageRatePercent: deviationFromAveragePercent(phases.map((p) => p.voltage.magnitude)),
-      currentNegativePercent: ratio(is.negative, is.positive),
-      currentZeroPercent: ratio(is.zero, is.positive),
-      currentDeviationPercent: deviationFromAveragePercent(lineCurrents.map(abs)),
-    };
-  }
+function readSequences(solution: NetworkSolution, phaseVoltages: readonly ComplexValue[], phases: readonly PhaseReading[], lineToLine: readonly LineToLineReading[]) {
+  const triple = (xs: readonly ComplexValue[]) => xs as unknown as [ComplexValue, ComplexValue, ComplexValue];
+  const vs = sequenceComponents(triple(phaseVoltages), solution.board.sequence);
+  const is = sequenceComponents(triple(solution.lineCurrents), solution.board.sequence);
+  const asPhasors = (x: typeof vs) => ({ zero: toPhasor(x.zero), positive: toPhasor(x.positive), negative: toPhasor(x.negative) });
+  const unbalance: UnbalanceReading = {
+    voltageFactorPercent: percentOf(vs.negative, vs.positive),
+    zeroSequenceVoltagePercent: percentOf(vs.zero, vs.positive),
+    lineVoltageRatePercent: deviationFromAveragePercent(lineToLine.map((l) => l.voltage.magnitude)),
+    phaseVoltageRatePercent: deviationFromAveragePercent(phases.map((p) => p.voltage.magnitude)),
+    currentNegativePercent: percentOf(is.negative, is.positive),
+    currentZeroPercent: percentOf(is.zero, is.positive),
+    currentDeviationPercent: deviationFromAveragePercent(solution.lineCurrents.map(abs)),
+  };
+  return { sequences: { voltage: asPhasors(vs), current: asPhasors(is) }, unbalance, V1: vs.positive, I1: is.positive };
+}
+
+/** Loads whose current/power part runs below the solver's low-voltage threshold. */
+function loadsBelowThreshold(solution: NetworkSolution) {
+  return solution.board.loads.flatMap((load, li) => {
+    const states = solution.branches[li]!;
+    const pu = Math.min(...load.branches.map((b, bi) => (b.zip.z === 1 || !states[bi]!.energised ? Infinity : abs(states[bi]!.voltage) / b.vNominal)));
+    return pu < solution.lowVoltageThreshold ? [{ name: load.name, pu, threshold: solution.lowVoltageThreshold }] : [];
+  });
+}
+
+export function analyseSolution(solution: NetworkSolution): BoardResult {
+  const { board } = solution;
+  const threePhase = isThreePhase(board.system);
+  const voltages = boardVoltages(solution);
+  const phases = readPhases(solution, voltages.bus, voltages.phase);
+  const lineToLine = readLineToLine(solution, voltages.bus);
+  const neutral = readNeutral(solution, voltages.neutralBar);
+  const loads = readLoads(solution, voltages.bus);
+  const loadTotal = sum(solution.branches.flat().map((s) => mul(s.voltage, conj(s.current))));
+  const sourcePower = sum(board.emf.map((e, k) => mul(e, conj(solution.lineCurrents[k]!))));
+  const seq = threePhase ? readSequences(solution, voltages.phase, phases, lineToLine) : null;
   const powerFactor = boardPowerDefinitions({
     phasePowers: phases.map((p) => ({ re: p.kW * 1000, im: p.kvar * 1000 })),
     phaseVoltages: phases.map((p) => p.voltage.magnitude),
@@ -170,24 +129,18 @@ export function analyseSolution(solution: NetworkSolution): BoardResult {
     lineToLine: lineToLine.map((l) => l.voltage.magnitude),
     neutralCurrent: solution.neutralCurrent ? abs(solution.neutralCurrent) : null,
     threePhase,
-    sequence: seqV1 && seqI1 ? { V1: seqV1, I1: seqI1 } : null,
+    sequence: seq ? { V1: seq.V1, I1: seq.I1 } : null,
   });
-  const belowThreshold = board.loads.flatMap((load, li) => {
-    const pu = Math.min(
-      ...load.branches.map((b, bi) => (b.zip.z === 1 || !solution.branches[li]![bi]!.energised ? Infinity : abs(solution.branches[li]![bi]!.voltage) / b.vNominal)),
-    );
-    return pu < solution.lowVoltageThreshold ? [{ name: load.name, pu, threshold: solution.lowVoltageThreshold }] : [];
-  });
-  const warnings = boardWarnings({ belowThreshold, phases, neutral, unbalance, loads, lineRatingA: board.lineRatingA });
-  const cautions = [GENERAL_CAUTION];
-  if (warnings.some((w) => w.code.startsWith('neutral'))) cautions.unshift(NEUTRAL_CAUTION);
+  const unbalance = seq?.unbalance ?? null;
+  const warnings = boardWarnings({ belowThreshold: loadsBelowThreshold(solution), phases, neutral, unbalance, loads, lineRatingA: board.lineRatingA });
+  const cautions = warnings.some((w) => w.code.startsWith('neutral')) ? [NEUTRAL_CAUTION, GENERAL_CAUTION] : [GENERAL_CAUTION];
   return {
     board: {
       name: board.name,
       system: board.system,
       sequence: board.sequence,
       frequencyHz: board.frequencyHz,
-      nominalLineToNeutralV: ln,
+      nominalLineToNeutralV: board.nominalLineToNeutralV,
       nominalLineToLineV: board.nominalLineToLineV,
       neutralOpen: board.neutralOpen,
     },
@@ -198,14 +151,8 @@ export function analyseSolution(solution: NetworkSolution): BoardResult {
     loads,
     totals: powerReading(loadTotal),
     source: { kW: sourcePower.re / 1000, kvar: sourcePower.im / 1000 },
-    losses: {
-      sourceKW: sourceLoss.re / 1000,
-      lineFeederKW: feederLoss.re / 1000,
-      neutralKW: neutralLoss.re / 1000,
-      totalKW: lossTotal.re / 1000,
-      totalKvar: lossTotal.im / 1000,
-    },
-    sequences,
+    losses: readLosses(solution),
+    sequences: seq?.sequences ?? null,
     unbalance,
     powerFactor,
     warnings,

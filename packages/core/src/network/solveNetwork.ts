@@ -13,7 +13,7 @@
 import { abs, add, conj, mul, neg, scale, sub, ZERO, isFiniteComplex, type ComplexValue } from '../complex.js';
 import { NumericalError } from '../errors.js';
 import { leastDeterminedUnknown, solveComplexSystem } from '../_internal/complexLu.js';
-import type { Board, LoadBranch } from '../board/boardModel.js';
+import type { Board, LoadBranch, Terminal } from '../board/boardModel.js';
 import { buildTopology, REFERENCE, type NetworkTopology } from './networkTopology.js';
 
 export interface SolveOptions {
@@ -259,7 +259,7 @@ export function solveNetwork(board: Board, options?: SolveOptions): NetworkSolut
 }
 
 /** Voltage of a terminal in a solution (null when it is connected to nothing). */
-export function terminalVoltage(solution: NetworkSolution, terminal: Parameters<NetworkTopology['terminalNode']['get']>[0]): ComplexValue | null {
+export function terminalVoltage(solution: NetworkSolution, terminal: Terminal): ComplexValue | null {
   const node = solution.topology.terminalNode.get(terminal);
   if (node === undefined) return null;
   return voltageOf(solution.nodeVoltages, node);
