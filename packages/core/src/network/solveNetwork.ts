@@ -4,8 +4,9 @@
  *
  * Each load branch is replaced by the admittance that draws its modelled power
  * at the present voltage, Y = conj(S(V)) / |V|²; the linear network is solved;
- * the admittances are updated from the new voltages; repeat until no node
- * voltage moves by more than `tolerance` × nominal. Constant-impedance-only
+ * the admittances are updated from the new voltages; repeat until the remaining
+ * error of every node voltage, estimated from the last step and the rate the steps
+ * shrink, is below `tolerance` × nominal. Constant-impedance-only
  * boards need a single solve. Below `lowVoltageThreshold` the current and power
  * parts of a load are held at their threshold admittance (they behave as
  * impedances), the usual way load-flow programs keep collapsing voltages solvable.
@@ -18,8 +19,8 @@ import { buildTopology, REFERENCE, type NetworkTopology } from './networkTopolog
 
 export interface SolveOptions {
   /**
-   * Stop when no node voltage changes by more than this fraction of the nominal
-   * line-to-neutral voltage between iterations.
+   * Stop when the estimated remaining error of every node voltage is below this
+   * fraction of the nominal line-to-neutral voltage.
    * @defaultValue 1e-10
    */
   readonly tolerance?: number;
@@ -83,6 +84,9 @@ export interface BranchState {
   /** False when a terminal is connected to nothing else, so the branch carries no current. */
   readonly energised: boolean;
 }
+
+/** A voltage change (fraction of nominal) this small is round-off: the iteration has settled. */
+const ROUND_OFF_CHANGE = 1e-14;
 
 /** Admittance that draws the modelled power of `branch` at voltage magnitude `v`. */
 function branchAdmittance(branch: LoadBranch, v: number, threshold: number): ComplexValue {
@@ -197,6 +201,7 @@ export function solveNetwork(board: Board, options?: SolveOptions): NetworkSolut
   let step = solveLinearStep(board, topo, live, admittances);
   let iterations = 1;
   let lastChange = 0;
+  let previousChange = 0;
   const branchVoltage = (s: LinearStep, b: LoadBranch) => {
     const vf = voltageOf(s.voltages, topo.terminalNode.get(b.from)!);
     const vt = voltageOf(s.voltages, topo.terminalNode.get(b.to)!);
@@ -216,7 +221,13 @@ export function solveNetwork(board: Board, options?: SolveOptions): NetworkSolut
       });
       step = next;
       if (!Number.isFinite(lastChange)) throw new NumericalError('non-finite', `the load iteration produced non-finite voltages at iteration ${iterations}`);
-      if (lastChange <= opts.tolerance) break;
+      // A fixed-point step that shrinks by `ratio` each time leaves an error of about
+      // change·ratio/(1 − ratio): stop on that estimate, not on the step alone, so slowly
+      // contracting boards are as accurate as fast ones. The floor is round-off.
+      const ratio = previousChange > 0 ? lastChange / previousChange : 0;
+      const settled = lastChange <= opts.tolerance * Math.max(0, 1 - ratio) || lastChange <= ROUND_OFF_CHANGE;
+      previousChange = lastChange;
+      if (settled) break;
       if (iterations >= opts.maxIterations)
         throw new NumericalError(
           'no-convergence',
