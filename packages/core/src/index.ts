@@ -40,7 +40,7 @@ export { solveBoard, solveBoardModel } from './solveBoard.js';
 export type * from './analysis/boardResult.js';
 export type { SequenceSet } from './analysis/symmetricalComponents.js';
 export { sequenceComponents } from './analysis/symmetricalComponents.js';
-export { deviationFromAveragePercent, unbalanceFactorFromLineMagnitudes } from './analysis/unbalanceIndices.js';
+export { deviationFromAveragePercent, unbalanceFactorFromLineMagnitudes, motorDeratingFactor } from './analysis/unbalanceIndices.js';
 export type { BoardPowerDefinitions, ApparentPowerReading } from './analysis/powerDefinitions.js';
 export { boardPowerDefinitions, effectiveQuantities } from './analysis/powerDefinitions.js';
 export { analyseSolution } from './analysis/analyseSolution.js';

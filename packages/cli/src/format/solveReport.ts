@@ -127,6 +127,7 @@ function sequenceBlock(r: BoardResult): string {
     `phase-voltage unbalance rate (IEEE)        ${fixed(u.phaseVoltageRatePercent, 2)} %`,
     `current |I2|/|I1|, |I0|/|I1|               ${fixed(u.currentNegativePercent, 1)} %, ${fixed(u.currentZeroPercent, 1)} %`,
     `line-current deviation from average        ${fixed(u.currentDeviationPercent, 1)} %`,
+    `three-phase motor derating (NEMA MG 1)     ${u.motorDeratingFactor === null ? 'above 5 %: operation not recommended' : `× ${fixed(u.motorDeratingFactor, 2)}`}`,
   ];
   return `${table}\n${lines.map((l) => `  ${l}`).join('\n')}`;
 }

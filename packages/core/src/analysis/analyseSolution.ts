@@ -7,7 +7,7 @@ import { isThreePhase } from '../board/systemTopology.js';
 import type { PhaseId } from '../board/boardModel.js';
 import { terminalVoltage, type NetworkSolution } from '../network/solveNetwork.js';
 import { sequenceComponents } from './symmetricalComponents.js';
-import { deviationFromAveragePercent } from './unbalanceIndices.js';
+import { deviationFromAveragePercent, motorDeratingFactor } from './unbalanceIndices.js';
 import { boardPowerDefinitions } from './powerDefinitions.js';
 import { boardWarnings, GENERAL_CAUTION, NEUTRAL_CAUTION } from './boardWarnings.js';
 import { readLoads } from './readLoads.js';
@@ -90,14 +90,16 @@ function readSequences(solution: NetworkSolution, phaseVoltages: readonly Comple
   const vs = sequenceComponents(triple(phaseVoltages), solution.board.sequence);
   const is = sequenceComponents(triple(solution.lineCurrents), solution.board.sequence);
   const asPhasors = (x: typeof vs) => ({ zero: toPhasor(x.zero), positive: toPhasor(x.positive), negative: toPhasor(x.negative) });
+  const lineRate = deviationFromAveragePercent(lineToLine.map((l) => l.voltage.magnitude));
   const unbalance: UnbalanceReading = {
     voltageFactorPercent: percentOf(vs.negative, vs.positive),
     zeroSequenceVoltagePercent: percentOf(vs.zero, vs.positive),
-    lineVoltageRatePercent: deviationFromAveragePercent(lineToLine.map((l) => l.voltage.magnitude)),
+    lineVoltageRatePercent: lineRate,
     phaseVoltageRatePercent: deviationFromAveragePercent(phases.map((p) => p.voltage.magnitude)),
     currentNegativePercent: percentOf(is.negative, is.positive),
     currentZeroPercent: percentOf(is.zero, is.positive),
     currentDeviationPercent: deviationFromAveragePercent(solution.lineCurrents.map(abs)),
+    motorDeratingFactor: motorDeratingFactor(lineRate),
   };
   return { sequences: { voltage: asPhasors(vs), current: asPhasors(is) }, unbalance, V1: vs.positive, I1: is.positive };
 }

@@ -91,6 +91,11 @@ export interface UnbalanceReading {
   readonly currentZeroPercent: number;
   /** Largest deviation of a line-current magnitude from their average, %. */
   readonly currentDeviationPercent: number;
+  /**
+   * Derating factor for three-phase induction motors at this line-voltage
+   * unbalance (NEMA MG 1 Figure 14-1); null above 5 %, where operation is not recommended.
+   */
+  readonly motorDeratingFactor: number | null;
 }
 
 export interface LossReading {

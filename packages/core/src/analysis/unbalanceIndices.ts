@@ -26,3 +26,35 @@ export function unbalanceFactorFromLineMagnitudes([uab, ubc, uca]: readonly [num
   const root = Math.min(1, Math.sqrt(Math.max(0, 3 - 6 * beta)));
   return 100 * Math.sqrt((1 - root) / (1 + root));
 }
+
+/**
+ * NEMA MG 1 motor derating for voltage unbalance (Figure 14-1), read at the
+ * points in METHODS.md §3 (confirmed in a secondary table; graph reads,
+ * ±0.01): 1.00 up to 1 %, 0.97 at 1.5 %, 0.95 at 2 %, 0.93 at 2.5 %, 0.89 at
+ * 3 %, 0.85 at 3.5 %, 0.82 at 4 %, 0.78 at 4.5 %, 0.76 at 5 %; linear between.
+ * Above 5 % NEMA does not recommend operation: null.
+ * @param lineVoltageRatePercent the NEMA line-voltage unbalance rate, %
+ * @example motorDeratingFactor(2) //=> 0.95
+ */
+export function motorDeratingFactor(lineVoltageRatePercent: number): number | null {
+  const points: readonly [number, number][] = [
+    [1, 1],
+    [1.5, 0.97],
+    [2, 0.95],
+    [2.5, 0.93],
+    [3, 0.89],
+    [3.5, 0.85],
+    [4, 0.82],
+    [4.5, 0.78],
+    [5, 0.76],
+  ];
+  const u = lineVoltageRatePercent;
+  if (u <= 1) return 1;
+  if (u > 5) return null;
+  for (let k = 1; k < points.length; k++) {
+    const [u1, f1] = points[k]!;
+    const [u0, f0] = points[k - 1]!;
+    if (u <= u1) return f0 + ((f1 - f0) * (u - u0)) / (u1 - u0);
+  }
+  return null;
+}
