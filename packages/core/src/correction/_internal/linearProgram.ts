@@ -19,8 +19,14 @@ export interface LinearProgram {
   readonly objectives: readonly (readonly number[])[];
 }
 
-/** Relative tolerance for feasibility and for "equal" objective values. */
-const TOLERANCE = 1e-9;
+/**
+ * Relative tolerance for feasibility. It must stay well below the slack the
+ * target check allows (1e-9 relative in Q/P), or a vertex a hair outside a PF
+ * bound passes as feasible and wins on cost.
+ */
+const FEASIBILITY = 1e-11;
+/** Relative tolerance for "equal" objective values in the lexicographic comparison. */
+const TIE = 1e-12;
 
 function normalised(lp: LinearProgram): { rows: number[][]; bounds: number[] } {
   const rows: number[][] = [];
@@ -42,7 +48,7 @@ function normalised(lp: LinearProgram): { rows: number[][]; bounds: number[] } {
 export function solveLinearProgram(lp: LinearProgram): number[] | null {
   const d = lp.objectives[0]?.length ?? 0;
   const { rows, bounds } = normalised(lp);
-  const scale = Math.max(1, ...bounds.map(Math.abs));
+  const scale = Math.max(1e-12, ...bounds.map(Math.abs));
   let best: number[] | null = null;
   let bestValues: number[] = [];
   for (const active of subsets(rows.length, d)) {
@@ -52,7 +58,7 @@ export function solveLinearProgram(lp: LinearProgram): number[] | null {
     );
     if (!z) continue;
     const zScale = Math.max(scale, ...z.map(Math.abs));
-    if (!rows.every((row, i) => dot(row, z) <= bounds[i]! + TOLERANCE * zScale)) continue;
+    if (!rows.every((row, i) => dot(row, z) <= bounds[i]! + FEASIBILITY * zScale)) continue;
     const values = lp.objectives.map((c) => dot(c, z));
     if (!best || isBetter(values, bestValues)) {
       best = z;
@@ -66,7 +72,7 @@ function isBetter(values: readonly number[], than: readonly number[]): boolean {
   for (let k = 0; k < values.length; k++) {
     const a = values[k]!;
     const b = than[k]!;
-    const slack = TOLERANCE * Math.max(1, Math.abs(a), Math.abs(b));
+    const slack = TIE * Math.max(1, Math.abs(a), Math.abs(b));
     if (a < b - slack) return true;
     if (a > b + slack) return false;
   }
