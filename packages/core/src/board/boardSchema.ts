@@ -5,7 +5,7 @@
  * Shape rules that zod cannot say neatly (exactly one way to rate a load, a
  * neutral load on a board with no neutral...) live in `boardRules.ts`.
  */
-import { z } from 'zod';
+import * as z from 'zod';
 import { correctionSpecSchema } from '../correction/correctionSpec.js';
 
 const positive = z.number().positive();

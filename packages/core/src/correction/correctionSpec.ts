@@ -4,7 +4,7 @@
  * JSON Schema. Every field is optional except the arrangement; defaults are in
  * `correctionDefaults.ts`, board-dependent rules in `correctionRules.ts`.
  */
-import { z } from 'zod';
+import * as z from 'zod';
 
 const powerFactor = z.number().gt(0).max(1);
 const percent = z.number().nonnegative();

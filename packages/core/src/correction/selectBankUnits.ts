@@ -17,7 +17,7 @@
  *   5 % of it as equal and then taking the fewest units, then the finest step.
  *   All units of a branch are of one type.
  */
-import { z } from 'zod';
+import * as z from 'zod';
 import { InputError, inputIssue } from '../errors.js';
 import { capacitorUnitSchema, STEP_PATTERNS, type CapacitanceToleranceSpec, type CapacitorUnitSpec, type StepPattern } from './correctionSpec.js';
 import { CORRECTION_DEFAULTS } from './correctionDefaults.js';

@@ -4,7 +4,7 @@
  * other (P_x falls by Q/(2√3), P_y rises by as much, for ABC), so the three
  * branch ratings are coupled: they are sized together on the solved board.
  */
-import { z } from 'zod';
+import * as z from 'zod';
 import type { Board } from '../board/boardModel.js';
 import type { SolveOptions } from '../network/solveNetwork.js';
 import { targetSchema, type TargetSpec } from './correctionSpec.js';

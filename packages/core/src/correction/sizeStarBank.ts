@@ -2,7 +2,7 @@
  * Star bank: one capacitor per phase, to the neutral bar on a 4-wire board or
  * to its own floating star point (a 3-wire board, or by choice).
  */
-import { z } from 'zod';
+import * as z from 'zod';
 import type { Board } from '../board/boardModel.js';
 import type { SolveOptions } from '../network/solveNetwork.js';
 import { targetSchema, type TargetSpec } from './correctionSpec.js';

@@ -4,7 +4,7 @@
  * at nominal capacitance and at both tolerance ends, the steady voltage rise,
  * the supply resonance estimate, and the light-load check of the fixed part.
  */
-import { z } from 'zod';
+import * as z from 'zod';
 import type { Board, PhaseId } from '../board/boardModel.js';
 import type { BoardResult } from '../analysis/boardResult.js';
 import { analyseSolution } from '../analysis/analyseSolution.js';

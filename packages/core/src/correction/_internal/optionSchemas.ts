@@ -1,5 +1,5 @@
 /** Schema pieces shared by the options of the public correction functions. */
-import { z } from 'zod';
+import * as z from 'zod';
 import type { Board } from '../../board/boardModel.js';
 import { InputError } from '../../errors.js';
 import type { CorrectionSpec } from '../correctionSpec.js';
