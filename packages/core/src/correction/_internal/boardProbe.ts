@@ -29,7 +29,16 @@ export interface BoardProbe {
   solves(): number;
 }
 
-export function createProbe(base: Board, slots: readonly BranchSlot[], name: string, solve: SolveOptions = {}): BoardProbe {
+/**
+ * Sizing differentiates solved boards numerically (steps of 1e-4 of the board's
+ * kVA), which turns the load iteration's leftover error ε into Jacobian noise of
+ * about ε/1e-4. The default solve tolerance (1e-10) would give 1e-6; this gives
+ * about 1e-9, below the loops' convergence step. Callers' options still win.
+ */
+const PROBE_SOLVE: SolveOptions = { tolerance: 1e-13, maxIterations: 400 };
+
+export function createProbe(base: Board, slots: readonly BranchSlot[], name: string, solveOptions: SolveOptions = {}): BoardProbe {
+  const solve = { ...PROBE_SOLVE, ...solveOptions };
   let count = 0;
   const groups = (kvar: readonly number[]) =>
     equipmentGroups(

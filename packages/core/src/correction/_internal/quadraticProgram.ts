@@ -18,7 +18,12 @@ export interface QuadraticProgram {
   readonly bounds: readonly number[];
 }
 
-const TOLERANCE = 1e-9;
+/**
+ * Relative tolerance for primal and dual feasibility of a candidate, kept far
+ * below the sizing loops' convergence step as in the LP: a looser one lets a
+ * candidate a hair outside a constraint win on objective.
+ */
+const TOLERANCE = 1e-12;
 
 const objective = (qp: QuadraticProgram, x: readonly number[]) => 0.5 * dot(x, multiplyVector(qp.h, x)) + dot(qp.c, x);
 
