@@ -15,6 +15,10 @@ describe('README', () => {
     const shown = block.replace(/^\s*```text\n/, '').replace(/```\s*$/, '');
     expect(shown.trimEnd()).toBe(runTrivar(['correct', 'examples/riverside-cold-store.yaml']).stdout.trimEnd());
   });
+  it.each(['quickstart.ts', 'correction-quickstart.ts'])('shows examples/%s as it is', (file) => {
+    const source = readFileSync(`${ROOT}examples/${file}`, 'utf8');
+    expect(readme).toContain(source.slice(source.indexOf('import {')).trimEnd());
+  });
   it('names the two set-up commands', () => {
     expect(readme).toContain('npm run demo');
     expect(readme).toContain('npm test');
