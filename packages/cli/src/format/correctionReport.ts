@@ -173,7 +173,11 @@ export function renderCorrectionReport(r: CorrectionReport): string {
     ...r.reasons.map((x) => `  - ${x}`),
   ];
   if (r.sizing.arrangement === 'balancing-compensator') parts.push(section('Compensator sizing') + compensatorBlock(r.sizing, r.idealVerification));
-  else parts.push(section('Sizing (continuous, before choosing units)') + sizingTable(r.sizing.branches));
+  else {
+    const shift = r.sizing.starPointShift;
+    const shiftLine = shift ? `\n  floating star point of the bank: ${fixed(shift.magnitude, 2)} V from the centroid of the line voltages` : '';
+    parts.push(section('Sizing (continuous, before choosing units)') + sizingTable(r.sizing.branches) + shiftLine);
+  }
   if (r.selection) parts.push(section('Bank as built from units') + selectionTable(r.selection));
   parts.push(section('Lines, before → after (verified by re-solving the board)') + lineTable(v));
   parts.push(section('Board, before → after') + boardLines(v));

@@ -30,6 +30,26 @@ function sizeArrangement(board: Board, spec: CorrectionSpec): BankSizing | Compe
   }
 }
 
+/** Star-point shift above this fraction of the line-to-neutral voltage is worth a warning (common practice, no source). */
+const STAR_SHIFT_WARNING = 0.1;
+
+function starPointWarnings(sizing: BankSizing | CompensatorSizing, board: Board): CorrectionWarning[] {
+  if (sizing.arrangement === 'balancing-compensator' || !sizing.starPointShift) return [];
+  const shift = sizing.starPointShift.magnitude;
+  const ln = board.nominalLineToNeutralV;
+  if (shift <= STAR_SHIFT_WARNING * ln) return [];
+  const volts = sizing.branches.map((b) => b.appliedV);
+  return [
+    {
+      code: 'star-point-shift',
+      message: warningText.starPointShift(shift, (100 * shift) / ln, Math.min(...volts), Math.max(...volts)),
+      path: 'starPoint',
+      value: shift,
+      threshold: STAR_SHIFT_WARNING * ln,
+    },
+  ];
+}
+
 /** What gets built: a bank's sizing, or a compensator's capacitor-only solution. */
 const buildable = (sizing: BankSizing | CompensatorSizing): SizedEquipment => (sizing.arrangement === 'balancing-compensator' ? sizing.capacitorOnly : sizing);
 
@@ -93,6 +113,7 @@ export function correctBoard(board: Board, spec: unknown): CorrectionReport {
 
   const warnings: CorrectionWarning[] = [
     ...(status === 'already-meets-target' ? [{ code: 'nothing-to-do', message: warningText.alreadyMet, path: 'target', value: null, threshold: null }] : []),
+    ...starPointWarnings(sizing, board),
     ...(sizing.arrangement === 'balancing-compensator' ? sizing.warnings : []),
     ...(selection?.warnings ?? []),
     ...verification.warnings,

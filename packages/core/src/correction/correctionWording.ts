@@ -77,6 +77,8 @@ export const warningText = {
   partialBalance: (negative: number, zero: number, reactors: readonly string[]) =>
     `the capacitor-only compensator meets the power-factor target but balances only partly (|I2|/|I1| = ${negative.toFixed(1)} %, |I0|/|I1| = ${zero.toFixed(1)} %)${reactors.length ? `; full balance needs reactors on ${reactors.join(', ')}` : ''}`,
   unitCount: (branch: string, max: number) => `branch ${branch}: the requirement needs more than ${max} units; the largest unit type was used anyway`,
+  starPointShift: (shiftV: number, percent: number, lowV: number, highV: number) =>
+    `the floating star point of the bank sits ${f1(shiftV)} V (${percent.toFixed(0)} % of line-to-neutral) from the centroid of the line voltages, so its elements see ${f1(lowV)}–${f1(highV)} V: a star bank with unequal branches on a board without a neutral works against itself; consider a delta bank`,
   reactorsNotSelected: 'reactors are given as continuous values only (kvar, mH); choosing reactor hardware is not part of this study',
   idealSource: 'the source impedance is zero, so the steady voltage rise and the resonance order cannot be estimated',
 };

@@ -5,7 +5,8 @@
  * Work is done in capacitance, which does not depend on the voltage: a unit
  * rated Q_r at V_r, f_r has C = Q_r/(2π·f_r·V_r²) and gives ω·C·V² where it is
  * used. Per branch, with the sizing's requirement C_req:
- * - rated voltage ≥ highest voltage across the branch × (1 + margin);
+ * - rated voltage ≥ highest voltage across the branch × (1 + margin) (for a floating star: the
+ *   line-to-line voltage, which an element reaches when the star point moves);
  * - the design state (fixed part + the steps switched on at the design load)
  *   reaches C_req/(1 − tol⁻), so the target holds with the lowest capacitance,
  *   and stays ≤ C_limit/(1 + tol⁺), so no line leads with the highest; where no
@@ -118,7 +119,10 @@ export function selectBankUnits(sized: SizedEquipment, options?: SelectBankUnits
   const selections = sized.branches.map((b: BranchSizing, i): BranchSelection => {
     const slot = slots[i]!;
     const light = opts.lightLoad?.branches[i];
-    const highestVoltageV = Math.max(slot.vNominal, b.appliedV, light?.appliedV ?? 0);
+    // The star point of a floating star bank moves as its steps switch (or a fuse opens): an
+    // element can then see up to the line-to-line voltage, so that is what its rating must cover.
+    const worstCaseV = slot.to === 'star' ? slot.vNominal * Math.sqrt(3) : slot.vNominal;
+    const highestVoltageV = Math.max(worstCaseV, b.appliedV, light?.appliedV ?? 0);
     const requiredRatedV = highestVoltageV * (1 + opts.margin);
     const requiredF = b.element === 'capacitor' ? b.susceptanceS / omega : 0;
     const minF = requiredF / (1 - opts.minus);
