@@ -5,76 +5,54 @@
  */
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
-import { polar, solveBoard } from '@trivar/core';
+import { solveBoard, type BoardSpec, type ComplexValue } from '@trivar/core';
+import { C0, c, cAdd, cDiv, cInv, cMul, cPolarDeg } from '../support/complexMath.js';
+import { expectComplexClose } from '../support/tolerance.js';
 
 type Z = { r: number; x: number };
-const inv = (z: Z) => {
-  const d = z.r * z.r + z.x * z.x;
-  return { re: z.r / d, im: -z.x / d };
-};
-const cmul = (a: { re: number; im: number }, b: { re: number; im: number }) => ({ re: a.re * b.re - a.im * b.im, im: a.re * b.im + a.im * b.re });
-const cdiv = (a: { re: number; im: number }, b: { re: number; im: number }) => {
-  const d = b.re * b.re + b.im * b.im;
-  return { re: (a.re * b.re + a.im * b.im) / d, im: (a.im * b.re - a.re * b.im) / d };
-};
+const VLN = 400 / Math.sqrt(3);
+const admittance = (z: Z) => cInv(c(z.r, z.x));
 
-function millman(zs: Z[], zn: Z | null, vln: number) {
-  const v = [0, -120, 120].map((deg) => polar(vln, (deg * Math.PI) / 180));
-  const ys = zs.map(inv);
-  let num = { re: 0, im: 0 };
-  let den = zn ? inv(zn) : { re: 0, im: 0 };
-  ys.forEach((y, k) => {
-    const t = cmul(y, v[k]!);
-    num = { re: num.re + t.re, im: num.im + t.im };
-    den = { re: den.re + y.re, im: den.im + y.im };
-  });
-  return cdiv(num, den);
+/** Millman's theorem, written out independently of core (balanced ABC EMFs of VLN). */
+function millman(zs: readonly Z[], zn: Z | null): ComplexValue {
+  const emf = [0, -120, 120].map((deg) => cPolarDeg(VLN, deg));
+  const ys = zs.map(admittance);
+  const num = ys.reduce((acc, y, k) => cAdd(acc, cMul(y, emf[k]!)), C0);
+  const den = ys.reduce(cAdd, zn ? admittance(zn) : C0);
+  return cDiv(num, den);
 }
 
+/** Three line-to-neutral impedances on a 400 V 4-wire board, with the given neutral conductor. */
+const starOfThree = ([za, zb, zc]: readonly Z[], neutral: Z): BoardSpec => ({
+  supply: { system: 'three-phase-4wire', voltage: { lineToLine: 400 }, frequencyHz: 50 },
+  feeder: { neutral },
+  loads: [
+    { name: 'a', connection: 'A-N', ohms: za! },
+    { name: 'b', connection: 'B-N', ohms: zb! },
+    { name: 'c', connection: 'C-N', ohms: zc! },
+  ],
+});
+
 const zArb = fc.record({ r: fc.double({ min: 1, max: 100, noNaN: true }), x: fc.double({ min: -50, max: 50, noNaN: true }) });
+const tolerance = { rel: 0, abs: 1e-9 * VLN };
 
 describe("Millman's theorem", () => {
   it('gives the floating star point of three unequal line-to-neutral loads when the neutral is broken', () => {
     fc.assert(
-      fc.property(zArb, zArb, zArb, (za, zb, zc) => {
-        const vln = 400 / Math.sqrt(3);
-        const board = {
-          supply: { system: 'three-phase-4wire', voltage: { lineToLine: 400 }, frequencyHz: 50 },
-          feeder: { neutral: { r: 0, x: 0 } },
-          loads: [
-            { name: 'a', connection: 'A-N', ohms: za },
-            { name: 'b', connection: 'B-N', ohms: zb },
-            { name: 'c', connection: 'C-N', ohms: zc },
-          ],
-        } as const;
-        const r = solveBoard(board, { openNeutral: true });
+      fc.property(fc.tuple(zArb, zArb, zArb), (zs) => {
         // With the neutral broken the three loads form a floating star: its point is the neutral bar.
-        const expected = millman([za, zb, zc], null, vln);
-        const bar = r.openNeutral!.barVoltage!;
-        expect(Math.abs(bar.re - expected.re)).toBeLessThan(1e-9 * vln);
-        expect(Math.abs(bar.im - expected.im)).toBeLessThan(1e-9 * vln);
+        const r = solveBoard(starOfThree(zs, { r: 0, x: 0 }), { openNeutral: true });
+        expectComplexClose(r.openNeutral!.barVoltage!, millman(zs, null), tolerance, 'floating star point');
       }),
       { numRuns: 60 },
     );
   });
   it('gives the neutral-bar voltage through a neutral conductor impedance', () => {
     fc.assert(
-      fc.property(zArb, zArb, zArb, zArb, (za, zb, zc, zn) => {
-        const vln = 400 / Math.sqrt(3);
-        const zNeutral = { r: zn.r / 20, x: Math.abs(zn.x) / 20 };
-        const r = solveBoard({
-          supply: { system: 'three-phase-4wire', voltage: { lineToLine: 400 }, frequencyHz: 50 },
-          feeder: { neutral: zNeutral },
-          loads: [
-            { name: 'a', connection: 'A-N', ohms: za },
-            { name: 'b', connection: 'B-N', ohms: zb },
-            { name: 'c', connection: 'C-N', ohms: zc },
-          ],
-        });
-        const expected = millman([za, zb, zc], zNeutral, vln);
-        const bar = r.neutral!.barVoltage!;
-        expect(Math.abs(bar.re - expected.re)).toBeLessThan(1e-9 * vln);
-        expect(Math.abs(bar.im - expected.im)).toBeLessThan(1e-9 * vln);
+      fc.property(fc.tuple(zArb, zArb, zArb), zArb, (zs, zn) => {
+        const neutral = { r: zn.r / 20, x: Math.abs(zn.x) / 20 };
+        const r = solveBoard(starOfThree(zs, neutral));
+        expectComplexClose(r.neutral!.barVoltage!, millman(zs, neutral), tolerance, 'neutral bar voltage');
       }),
       { numRuns: 60 },
     );
@@ -91,6 +69,6 @@ describe("Millman's theorem", () => {
       },
       loads: [{ name: 'heater bank', connection: 'ABC-star', ohms: { r: 20, x: 4 } }],
     });
-    expect(r.loads[0]!.starPointShift!.magnitude).toBeLessThan(1e-9 * 231);
+    expect(r.loads[0]!.starPointShift!.magnitude).toBeLessThan(1e-9 * VLN);
   });
 });

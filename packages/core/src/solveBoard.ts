@@ -1,7 +1,6 @@
 import { parseBoard } from './board/validateBoard.js';
 import { normaliseBoard } from './board/normaliseBoard.js';
 import type { Board } from './board/boardModel.js';
-import type { BoardSpec } from './board/boardSchema.js';
 import { solveNetwork, type SolveOptions } from './network/solveNetwork.js';
 import { analyseSolution } from './analysis/analyseSolution.js';
 import { studyOpenNeutral } from './analysis/studyOpenNeutral.js';
@@ -51,6 +50,6 @@ function assertFiniteResult<T>(result: T): T {
  * });
  * result.neutral?.current.magnitude //=> 10 (A: the whole phase-A current returns in the neutral)
  */
-export function solveBoard(input: BoardSpec | unknown, options: SolveBoardOptions = {}): BoardResult {
+export function solveBoard(input: unknown, options: SolveBoardOptions = {}): BoardResult {
   return solveBoardModel(normaliseBoard(parseBoard(input)), options);
 }

@@ -42,7 +42,11 @@ export async function runCorrect(file: string, options: CorrectCommandOptions, i
     // The study comes from the board file's correction section (and the options laid over it).
     if (error instanceof InputError)
       throw new InputError(
-        error.issues.map((i) => ({ ...i, path: i.path ? `correction.${i.path}` : 'correction', message: `correction.${i.message}` })),
+        error.issues.map((i) => {
+          const path = i.path ? `correction.${i.path}` : 'correction';
+          // Messages start with "<path>: "; restate them at the path inside the board file.
+          return { ...i, path, message: `${path}: ${i.message.slice(i.message.indexOf(': ') + 2)}` };
+        }),
         'the correction study is not valid (board file correction section or command-line options)',
       );
     throw error;

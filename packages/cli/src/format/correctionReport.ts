@@ -27,7 +27,7 @@ function elementText(b: BranchSizing): string {
 }
 
 /** The continuous (ideal-size) elements: what each branch needs before units are chosen. */
-export function sizingTable(branches: readonly BranchSizing[]): string {
+function sizingTable(branches: readonly BranchSizing[]): string {
   return renderTable(
     [
       { header: 'branch', align: 'left' },

@@ -9,7 +9,7 @@ const SYSTEM_WORDS: Record<string, string> = {
   'single-phase': 'single-phase 2-wire',
 };
 
-export function pfText(r: Pick<PowerReading, 'pf' | 'sense' | 'kVA'>): string {
+function pfText(r: Pick<PowerReading, 'pf' | 'sense' | 'kVA'>): string {
   if (r.kVA === 0) return '-';
   const sense = r.sense === 'lagging' ? ' lag' : r.sense === 'leading' ? ' lead' : '';
   return `${fixed(r.pf, 3)}${sense}`;
@@ -28,7 +28,7 @@ export function headerLines(r: BoardResult): string[] {
   ];
 }
 
-export function phaseTable(r: BoardResult): string {
+function phaseTable(r: BoardResult): string {
   const rows = r.phases.map((p) => [
     p.phase,
     fixed(p.voltage.magnitude, 1),
@@ -78,7 +78,7 @@ export function phaseTable(r: BoardResult): string {
   return table + note + (ll ? `\n  line-to-line: ${ll}` : '');
 }
 
-export function loadTable(r: BoardResult): string {
+function loadTable(r: BoardResult): string {
   const rows = r.loads.map((l) => {
     const worst = l.branches.reduce((a, b) => (Math.abs(b.voltagePercent - 100) > Math.abs(a.voltagePercent - 100) ? b : a));
     return [
@@ -154,7 +154,7 @@ function powerBlock(r: BoardResult): string {
   ].join('\n');
 }
 
-export function openNeutralBlock(study: OpenNeutralStudy): string {
+function openNeutralBlock(study: OpenNeutralStudy): string {
   if (!study.applicable) return `  not applicable: ${study.note ?? ''}`;
   const rows = study.loads.map((l) => [l.name, l.phase, fixed(l.voltage, 1), fixed(l.voltagePercent, 1), l.flag === 'ok' ? '' : l.flag === 'over' ? 'OVERVOLTAGE' : 'undervoltage']);
   const table = renderTable(

@@ -6,7 +6,7 @@
 import { abs, toPhasor } from '../complex.js';
 import { NumericalError } from '../errors.js';
 import type { Board, PhaseId } from '../board/boardModel.js';
-import { solveNetwork, terminalVoltage, type SolveOptions } from '../network/solveNetwork.js';
+import { solveNetwork, terminalVoltage, type NetworkSolution, type SolveOptions } from '../network/solveNetwork.js';
 import type { OpenNeutralLoadReading, OpenNeutralStudy } from './boardResult.js';
 import { OPEN_NEUTRAL_CAUTIONS, WARNING_THRESHOLDS } from './boardWarnings.js';
 
@@ -22,7 +22,7 @@ export function studyOpenNeutral(board: Board, options?: SolveOptions): OpenNeut
   });
   if (!board.hasNeutral) return notApplicable('a three-phase-3wire board has no neutral conductor to lose');
   if (board.system === 'single-phase') return notApplicable('on a single-phase 2-wire board a broken neutral simply de-energises every load');
-  let broken;
+  let broken: NetworkSolution;
   try {
     broken = solveNetwork({ ...board, neutralOpen: true }, options);
   } catch (error) {
