@@ -97,7 +97,7 @@ function branchAdmittance(branch: LoadBranch, v: number, threshold: number): Com
 }
 
 /** Nodes that have some path of non-zero admittance to the star point. */
-function connectedNodes(board: Board, topo: NetworkTopology): boolean[] {
+export function connectedNodes(board: Board, topo: NetworkTopology): boolean[] {
   const n = topo.nodeNames.length;
   const adjacency: number[][] = Array.from({ length: n + 1 }, () => []);
   const at = (node: number) => (node === REFERENCE ? n : node);
@@ -127,12 +127,23 @@ function connectedNodes(board: Board, topo: NetworkTopology): boolean[] {
   return seen.slice(0, n);
 }
 
-interface LinearStep {
+export interface LinearStep {
   readonly voltages: (ComplexValue | null)[];
   readonly sourceCurrents: ComplexValue[];
 }
 
-function solveLinearStep(board: Board, topo: NetworkTopology, live: boolean[], admittances: ComplexValue[][]): LinearStep {
+/**
+ * One linear MNA solve with the given branch admittances. `nodeInjections`
+ * (optional, indexed by node number) are currents injected into nodes by
+ * ideal current sources, A — the hook harmonic solves use for non-linear loads.
+ */
+export function solveLinearStep(
+  board: Board,
+  topo: NetworkTopology,
+  live: readonly boolean[],
+  admittances: readonly (readonly ComplexValue[])[],
+  nodeInjections?: readonly ComplexValue[],
+): LinearStep {
   // Unknowns: live nodes, then one current per EMF.
   const index = new Array<number>(live.length).fill(-1);
   let size = 0;
@@ -143,6 +154,9 @@ function solveLinearStep(board: Board, topo: NetworkTopology, live: boolean[], a
   const dim = size + sources;
   const a: ComplexValue[][] = Array.from({ length: dim }, () => new Array<ComplexValue>(dim).fill(ZERO));
   const rhs = new Array<ComplexValue>(dim).fill(ZERO);
+  nodeInjections?.forEach((j, node) => {
+    if (live[node]) rhs[index[node]!] = add(rhs[index[node]!]!, j);
+  });
   const stamp = (p: number, q: number, y: ComplexValue) => {
     const i = p === REFERENCE ? -1 : index[p]!;
     const j = q === REFERENCE ? -1 : index[q]!;
@@ -184,7 +198,7 @@ function solveLinearStep(board: Board, topo: NetworkTopology, live: boolean[], a
   return { voltages, sourceCurrents };
 }
 
-const voltageOf = (voltages: readonly (ComplexValue | null)[], node: number): ComplexValue | null =>
+export const voltageOf = (voltages: readonly (ComplexValue | null)[], node: number): ComplexValue | null =>
   node === REFERENCE ? ZERO : voltages[node]!;
 
 /**
