@@ -42,8 +42,8 @@ export function inputIssuesFromZod(issues: readonly core.$ZodIssue[], root: unkn
     const path = [...prefix, ...issue.path];
     if (issue.code === 'unrecognized_keys')
       return issue.keys.map((key) => inputIssue('unknown_key', formatPath([...path, key]), 'only the documented keys (see the board JSON Schema)', key));
-    // A refinement may report a value of its own (a spectrum's total, not the list).
-    const received = issue.code === 'custom' && issue.input !== undefined ? issue.input : valueAt(root, issue.path);
+    // A refinement may report a value of its own in params.received (a spectrum's total, not the list).
+    const received = issue.code === 'custom' && issue.params?.received !== undefined ? (issue.params.received as unknown) : valueAt(root, issue.path);
     // A refinement names its own code in params.code (`duplicate`, `not_integer`...).
     const own = issue.code === 'custom' && typeof issue.params?.code === 'string' ? (issue.params.code as string) : null;
     const code = own ??
@@ -51,7 +51,9 @@ export function inputIssuesFromZod(issues: readonly core.$ZodIssue[], root: unkn
         ? 'missing'
         : issue.code === 'too_small' || issue.code === 'too_big'
           ? 'out_of_range'
-          : issue.code);
+          : issue.code === 'invalid_union'
+            ? 'invalid_value'
+            : issue.code);
     return [inputIssue(code, formatPath(path), expectedFor(issue), received)];
   });
 }

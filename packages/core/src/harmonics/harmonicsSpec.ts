@@ -33,12 +33,11 @@ function checkOrders(entries: readonly Entry[], ctx: z.RefinementCtx, maxThdPerc
       ctx.addIssue({
         code: 'custom',
         path: [i, 'order'],
-        input: e.order,
         params: { code: Number.isInteger(e.order) ? 'out_of_range' : 'not_integer' },
         message: `a whole harmonic order from 2 to ${MAX_ORDER}`,
       });
     else if (seen.has(e.order))
-      ctx.addIssue({ code: 'custom', path: [i, 'order'], input: e.order, params: { code: 'duplicate' }, message: `each order once (order ${e.order} is already at [${seen.get(e.order)}])` });
+      ctx.addIssue({ code: 'custom', path: [i, 'order'], params: { code: 'duplicate' }, message: `each order once (order ${e.order} is already at [${seen.get(e.order)}])` });
     else seen.set(e.order, i);
   });
   if (maxThdPercent !== null) {
@@ -47,8 +46,7 @@ function checkOrders(entries: readonly Entry[], ctx: z.RefinementCtx, maxThdPerc
       ctx.addIssue({
         code: 'custom',
         path: [],
-        input: Math.round(thd * 10) / 10,
-        params: { code: 'implausible' },
+        params: { code: 'implausible', received: Math.round(thd * 10) / 10 },
         message: `a spectrum whose total distortion √Σ(%²) is at most ${maxThdPercent} % of the fundamental (percent is of the load's fundamental current)`,
       });
   }

@@ -93,6 +93,11 @@ export function createScanEvaluator(fundamental: NetworkSolution, model: Harmoni
   const pairZ = new Float64Array(2);
   // Per bank part: its branches' ends and admittance at the prepared order.
   const partStamps = new Map<number, { p: number; q: number; y: ComplexValue }[]>();
+  // A part's own floating star point: tied to nothing while the part is off, so it gets a
+  // unit diagonal then (a decoupled node that changes no other impedance).
+  const privateNodes = new Map<number, number[]>(
+    [...bankParts].map((l) => [l, [...new Set(board.loads[l]!.branches.flatMap((b) => [b.from, b.to]).filter((t) => t.startsWith('star:')))].map((t) => plan.terminalIndex.get(t) ?? -1).filter((n) => n >= 0)]),
+  );
 
   const stampLoad = (m: NodalMatrix, l: number, h: number) => {
     const behaviour = model.loads[l]!;
@@ -129,7 +134,10 @@ export function createScanEvaluator(fundamental: NetworkSolution, model: Harmoni
     impedances(steps, out, offset) {
       copyNodalMatrix(base, work);
       const on = (l: number) => bank !== null && (l === bank.fixedLoad || bank.stepLoads.some((s, k) => s === l && steps[k]));
-      for (const [l, stamps] of partStamps) if (on(l)) for (const s of stamps) stampAdmittance(work, s.p, s.q, s.y.re, s.y.im);
+      for (const [l, stamps] of partStamps) {
+        if (on(l)) for (const s of stamps) stampAdmittance(work, s.p, s.q, s.y.re, s.y.im);
+        else for (const n of privateNodes.get(l)!) stampAdmittance(work, n, -1, 1, 0);
+      }
       if (plan.size > 0) invertNodalMatrix(work, inverseWork);
       ends.forEach(([p, q], k) => {
         if (plan.size === 0) pairZ.fill(0);
@@ -226,6 +234,8 @@ export function scanResonance(fundamental: NetworkSolution, model: HarmonicModel
   const out = new Float64Array(nPairs);
   const combinations = combos.map((steps, c): ScanCombination => {
     const curves = evaluator.pairs.map((_, k) => grid.map((_, i) => values[c]![i * nPairs + k]!));
+    // The curves are for plotting: 6 significant digits (peaks are refined on the exact values).
+    const plotted = curves.map((curve) => curve.map((z) => Number(z.toPrecision(6))));
     const peaks: ScanPeak[] = [];
     curves.forEach((curve, k) => {
       for (const i of peakIndices(curve, HARMONICS_DEFAULTS.peakProminence)) {
@@ -242,7 +252,7 @@ export function scanResonance(fundamental: NetworkSolution, model: HarmonicModel
     const kvar = bank ? bankKvarOn(board, bank, steps) : 0;
     const formulaOrder = ssc !== null && kvar > 0 && (bank?.detuning ?? 0) === 0 ? Math.sqrt(ssc / (kvar * 1000)) : null;
     const nearOrders = options.checkedOrders.filter((o) => peaks.some((pk) => Math.abs(pk.order - o) <= band * o));
-    return { steps, label: combinationLabel(bank, steps), capacitorKvar: kvar, formulaOrder, impedanceOhm: curves, peaks, nearOrders };
+    return { steps, label: combinationLabel(bank, steps), capacitorKvar: kvar, formulaOrder, impedanceOhm: plotted, peaks, nearOrders };
   });
   return {
     orders: grid,
