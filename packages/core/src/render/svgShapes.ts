@@ -34,7 +34,9 @@ export function arrow(from: Point, to: Point, style: ArrowStyle, data: Readonly<
   const dataAttrs = Object.fromEntries(Object.entries(data).map(([k, v]) => [`data-${k}`, v]));
   const group = `<g class="phasor"${attrs(dataAttrs)}${style.opacity !== undefined ? attrs({ opacity: style.opacity }) : ''}>`;
   if (len < MIN_ARROW_PX) {
-    return `${group}<circle${attrs({ cx: to.x, cy: to.y, r: Math.max(2, style.width), fill: style.colour })}/></g>`;
+    // The short shaft stays so the drawing still says where the phasor starts.
+    const shaft = attrs({ x1: from.x, y1: from.y, x2: to.x, y2: to.y, stroke: style.colour, 'stroke-width': style.width });
+    return `${group}<line${shaft}/><circle${attrs({ cx: to.x, cy: to.y, r: Math.max(2, style.width), fill: style.colour })}/></g>`;
   }
   const head = Math.min(style.head ?? 4 + 2.2 * style.width, 0.45 * len);
   const ux = dx / len;

@@ -43,6 +43,7 @@ footer { margin-top: 2rem; border-top: 1px solid var(--rule); padding-top: .5rem
   figure svg { max-height: 120mm; width: auto; }
   .table-wrap { overflow: visible; }
   table { font-size: 8pt; }
+  p.table-note, figcaption { font-size: 7.5pt; }
   th, td { padding: .12rem .3rem; }
   tbody tr:nth-child(even) td { background: none; }
   a { color: inherit; text-decoration: none; }
