@@ -33,6 +33,9 @@ export { normaliseBoard } from './board/normaliseBoard.js';
 // Solving
 export type { SolveOptions, NetworkSolution, BranchState } from './network/solveNetwork.js';
 export { solveNetwork, terminalVoltage } from './network/solveNetwork.js';
+export type { CompiledBoard } from './network/solveNetwork.js';
+export { compileBoard, solveCompiledBoard } from './network/solveNetwork.js';
+export type { CompiledNetwork } from './network/compiledNetwork.js';
 export type { SolveBoardOptions } from './solveBoard.js';
 export { solveBoard, solveBoardModel } from './solveBoard.js';
 
