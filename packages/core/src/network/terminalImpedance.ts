@@ -14,8 +14,8 @@
 import type { ComplexValue } from '../complex.js';
 import { NumericalError } from '../errors.js';
 import type { Board, Terminal } from '../board/boardModel.js';
-import { buildTopology, REFERENCE } from './networkTopology.js';
-import { connectedNodes } from './solveNetwork.js';
+import { REFERENCE } from './networkTopology.js';
+import { compileBoard } from './solveNetwork.js';
 
 /** The board's nodes with the EMFs shorted: which unknown each terminal and branch end is. */
 export interface PassiveNetworkPlan {
@@ -36,8 +36,9 @@ export interface PassiveNetworkPlan {
  * (a dead branch's private star point) are left out.
  */
 export function planPassiveNetwork(board: Board): PassiveNetworkPlan {
-  const topo = buildTopology(board);
-  const live = connectedNodes(board, topo);
+  // Same numbering and the same idea of which nodes conduct as every solve.
+  const { topology: topo, network } = compileBoard(board);
+  const live = Array.from(network.live, (x) => x === 1);
   const sources = new Set(topo.sourceNode);
   const index = new Array<number>(topo.nodeNames.length).fill(-1);
   let size = 0;
