@@ -50,6 +50,11 @@ export { boardPowerDefinitions, effectiveQuantities } from './analysis/powerDefi
 export { analyseSolution } from './analysis/analyseSolution.js';
 export { powerReading } from './analysis/powerReading.js';
 export { studyOpenNeutral } from './analysis/studyOpenNeutral.js';
+export { OPEN_NEUTRAL_LIMITS, OPEN_NEUTRAL_METHOD } from './analysis/openNeutralWording.js';
+export type { NeutralBreakPath, FollowNeutralBreakOptions } from './analysis/followNeutralBreak.js';
+export { followNeutralBreak, withNeutralFault } from './analysis/followNeutralBreak.js';
+export type { NewtonOptions, NewtonOutcome } from './network/solveNetworkByNewton.js';
+export { solveNetworkByNewton } from './network/solveNetworkByNewton.js';
 export { WARNING_THRESHOLDS } from './analysis/boardWarnings.js';
 
 // Correction
