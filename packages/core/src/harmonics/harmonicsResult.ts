@@ -86,7 +86,7 @@ export interface ScanCombination {
   readonly capacitorKvar: number;
   /** √(S_sc/Q_c); null without a source impedance, without capacitors, or for a detuned bank (the formula does not apply). */
   readonly formulaOrder: number | null;
-  /** |Z| per pair, per scanned order, ohm (6 significant digits: plotting data). */
+  /** |Z| per pair, per scanned order, ohm, rounded to 1e-6 of the curve's largest value (plotting data). */
   readonly impedanceOhm: readonly (readonly number[])[];
   readonly peaks: readonly ScanPeak[];
   /** Injected (or watched) orders within ±10 % of a peak. */

@@ -99,15 +99,63 @@ export function createScanEvaluator(fundamental: NetworkSolution, model: Harmoni
     [...bankParts].map((l) => [l, [...new Set(board.loads[l]!.branches.flatMap((b) => [b.from, b.to]).filter((t) => t.startsWith('star:')))].map((t) => plan.terminalIndex.get(t) ?? -1).filter((n) => n >= 0)]),
   );
 
-  const stampLoad = (m: NodalMatrix, l: number, h: number) => {
+  // The non-bank branches as flat arrays, so that each order stamps them without allocating:
+  // kind 0 = parallel G + jB, 1 = series R + jX, 2 = detuned step (a = B_C, b = p).
+  const fixed = { from: [] as number[], to: [] as number[], kind: [] as number[], a: [] as number[], b: [] as number[] };
+  board.loads.forEach((_, l) => {
+    if (bankParts.has(l)) return;
     const behaviour = model.loads[l]!;
+    if (behaviour.kind === 'non-linear') return;
     fundamental.branches[l]!.forEach((state, k) => {
       const e = plan.branchEnds[l]![k];
-      if (!e) return;
-      const y = branchAdmittanceAtOrder(state.admittance, behaviour, h);
-      if (y.re !== 0 || y.im !== 0) stampAdmittance(m, e[0], e[1], y.re, y.im);
+      const y = state.admittance;
+      if (!e || (y.re === 0 && y.im === 0)) return;
+      fixed.from.push(e[0]);
+      fixed.to.push(e[1]);
+      if (behaviour.kind === 'detuned') {
+        fixed.kind.push(2);
+        fixed.a.push(y.im * (1 - behaviour.p));
+        fixed.b.push(behaviour.p);
+      } else if (behaviour.form === 'parallel') {
+        fixed.kind.push(0);
+        fixed.a.push(y.re);
+        fixed.b.push(y.im);
+      } else {
+        const z = inverse(y);
+        fixed.kind.push(1);
+        fixed.a.push(z.re);
+        fixed.b.push(z.im);
+      }
     });
+  });
+  const stampFixed = (m: NodalMatrix, h: number) => {
+    for (let i = 0; i < fixed.kind.length; i++) {
+      const a = fixed.a[i]!;
+      const b = fixed.b[i]!;
+      let g: number;
+      let s: number;
+      switch (fixed.kind[i]) {
+        case 0:
+          g = a;
+          s = b < 0 ? b / h : b * h;
+          break;
+        case 1: {
+          // Same scaling as branchAdmittanceAtOrder: X·h inductive, X/h capacitive, R constant.
+          const x = b >= 0 ? b * h : b / h;
+          const d = a * a + x * x;
+          g = a / d;
+          s = -x / d;
+          break;
+        }
+        default:
+          g = 0;
+          s = (a * h) / (1 - h * h * b);
+      }
+      stampAdmittance(m, fixed.from[i]!, fixed.to[i]!, g, s);
+    }
   };
+  const stepOfPart = new Map<number, number>(bank ? bank.stepLoads.map((l, k) => [l, k]) : []);
+  const parts = [...bankParts];
 
   return {
     pairs,
@@ -117,9 +165,7 @@ export function createScanEvaluator(fundamental: NetworkSolution, model: Harmoni
       const line = add(impedanceAtOrder(board.sourceImpedance, h, model.resistance), impedanceAtOrder(board.lineImpedance, h, model.resistance));
       const neutral = impedanceAtOrder(board.neutralImpedance, h, model.resistance);
       stampConductors(plan, base, abs(line) === 0 ? null : inverse(line), board.neutralOpen || abs(neutral) === 0 ? null : inverse(neutral));
-      board.loads.forEach((_, l) => {
-        if (!bankParts.has(l)) stampLoad(base, l, h);
-      });
+      stampFixed(base, h);
       for (const l of bankParts) {
         const behaviour = model.loads[l]!;
         partStamps.set(
@@ -133,17 +179,19 @@ export function createScanEvaluator(fundamental: NetworkSolution, model: Harmoni
     },
     impedances(steps, out, offset) {
       copyNodalMatrix(base, work);
-      const on = (l: number) => bank !== null && (l === bank.fixedLoad || bank.stepLoads.some((s, k) => s === l && steps[k]));
-      for (const [l, stamps] of partStamps) {
-        if (on(l)) for (const s of stamps) stampAdmittance(work, s.p, s.q, s.y.re, s.y.im);
+      for (let k = 0; k < parts.length; k++) {
+        const l = parts[k]!;
+        const step = stepOfPart.get(l);
+        if (step === undefined || steps[step] === true) for (const s of partStamps.get(l)!) stampAdmittance(work, s.p, s.q, s.y.re, s.y.im);
         else for (const n of privateNodes.get(l)!) stampAdmittance(work, n, -1, 1, 0);
       }
       if (plan.size > 0) invertNodalMatrix(work, inverseWork);
-      ends.forEach(([p, q], k) => {
+      for (let k = 0; k < ends.length; k++) {
         if (plan.size === 0) pairZ.fill(0);
-        else impedanceBetween(work, p, q, pairZ, 0);
-        out[offset + k] = Math.hypot(pairZ[0]!, pairZ[1]!);
-      });
+        else impedanceBetween(work, ends[k]![0], ends[k]![1], pairZ, 0);
+        // Math.hypot is several times slower than this in V8, and |Z| never nears overflow.
+        out[offset + k] = Math.sqrt(pairZ[0]! * pairZ[0]! + pairZ[1]! * pairZ[1]!);
+      }
     },
   };
 }
@@ -158,40 +206,70 @@ function safeOrder(h: number, model: HarmonicModel): number {
   return h;
 }
 
+/**
+ * Rounds a curve for plotting to 1e-6 of its largest value (one multiply and
+ * round per point: over a million points toPrecision would take longer than the scan).
+ */
+function roundForPlot(curve: Float64Array | readonly number[]): number[] {
+  let largest = 0;
+  for (const z of curve) if (z > largest) largest = z;
+  if (!(largest > 0)) return Array.from(curve);
+  const step = 10 ** (Math.floor(Math.log10(largest)) - 6);
+  return Array.from(curve, (z) => Math.round(z / step) * step);
+}
+
 /** The scan grid: 1, 1 + step, …, up to maxOrder. */
 export function scanGrid(maxOrder: number, step: number): number[] {
   const count = Math.floor((maxOrder - 1) / step + 1e-9) + 1;
   return Array.from({ length: count }, (_, k) => Math.round((1 + k * step) * 1e9) / 1e9);
 }
 
-/** Golden-section refinement of a maximum of f on [a, b], to 1e-7 in h. */
-function refineMaximum(f: (h: number) => number, a: number, b: number): { h: number; value: number } {
-  const g = (Math.sqrt(5) - 1) / 2;
-  let x1 = b - g * (b - a);
-  let x2 = a + g * (b - a);
-  let f1 = f(x1);
-  let f2 = f(x2);
-  while (b - a > 1e-7) {
-    if (f1 < f2) {
-      a = x1;
-      x1 = x2;
-      f1 = f2;
-      x2 = a + g * (b - a);
-      f2 = f(x2);
+/**
+ * Refines a peak of |Z| bracketed by grid points a < m < b (f(m) the largest).
+ * Near a parallel resonance 1/|Z|² is close to a parabola in h, so successive
+ * parabolic interpolation on it converges in a few evaluations; a step that
+ * leaves the bracket falls back to bisecting the larger side.
+ */
+function refineMaximum(f: (h: number) => number, a: number, m: number, b: number, fm: number): { h: number; value: number } {
+  const g = (z: number) => 1 / (z * z);
+  let fa = g(f(a));
+  let fb = g(f(b));
+  let gm = g(fm);
+  let best = { h: m, value: fm };
+  for (let iteration = 0; iteration < 40 && b - a > 1e-9; iteration++) {
+    const p = (m - a) * (gm - fb);
+    const q = (m - b) * (gm - fa);
+    const denominator = 2 * (p - q);
+    let x = denominator !== 0 ? m - ((m - a) * p - (m - b) * q) / denominator : Number.NaN;
+    if (!(x > a && x < b) || Math.abs(x - m) < 1e-10) x = m - a > b - m ? (a + m) / 2 : (m + b) / 2;
+    const zx = f(x);
+    const gx = g(zx);
+    if (zx > best.value) best = { h: x, value: zx };
+    // Keep the three points that bracket the smallest 1/|Z|².
+    if (gx < gm) {
+      if (x < m) {
+        b = m;
+        fb = gm;
+      } else {
+        a = m;
+        fa = gm;
+      }
+      m = x;
+      gm = gx;
+    } else if (x < m) {
+      a = x;
+      fa = gx;
     } else {
-      b = x2;
-      x2 = x1;
-      f2 = f1;
-      x1 = b - g * (b - a);
-      f1 = f(x1);
+      b = x;
+      fb = gx;
     }
+    if (Math.abs(x - m) < 1e-7 && b - a < 1e-3) break;
   }
-  const h = (a + b) / 2;
-  return { h, value: f(h) };
+  return best;
 }
 
 /** Local maxima of a sampled curve that stand out by the prominence rule, as grid indices. */
-export function peakIndices(values: readonly number[], prominence: number): number[] {
+export function peakIndices(values: ArrayLike<number>, prominence: number): number[] {
   const peaks: number[] = [];
   for (let i = 1; i < values.length - 1; i++) {
     const v = values[i]!;
@@ -233,9 +311,13 @@ export function scanResonance(fundamental: NetworkSolution, model: HarmonicModel
   const band = HARMONICS_DEFAULTS.resonanceBand;
   const out = new Float64Array(nPairs);
   const combinations = combos.map((steps, c): ScanCombination => {
-    const curves = evaluator.pairs.map((_, k) => grid.map((_, i) => values[c]![i * nPairs + k]!));
-    // The curves are for plotting: 6 significant digits (peaks are refined on the exact values).
-    const plotted = curves.map((curve) => curve.map((z) => Number(z.toPrecision(6))));
+    const curves = evaluator.pairs.map((_, k) => {
+      const curve = new Float64Array(grid.length);
+      for (let i = 0; i < grid.length; i++) curve[i] = values[c]![i * nPairs + k]!;
+      return curve;
+    });
+    // The curves are for plotting, so rounded (peaks are found and refined on the exact values).
+    const plotted = curves.map(roundForPlot);
     const peaks: ScanPeak[] = [];
     curves.forEach((curve, k) => {
       for (const i of peakIndices(curve, HARMONICS_DEFAULTS.peakProminence)) {
@@ -244,7 +326,7 @@ export function scanResonance(fundamental: NetworkSolution, model: HarmonicModel
           evaluator.impedances(steps, out, 0);
           return out[k]!;
         };
-        const refined = refineMaximum(at, grid[i - 1]!, grid[i + 1]!);
+        const refined = refineMaximum(at, grid[i - 1]!, grid[i]!, grid[i + 1]!, curve[i]!);
         const [p, q] = evaluator.pairs[k]!;
         peaks.push({ pair: `${p}-${q}`, order: refined.h, impedanceOhm: refined.value });
       }
