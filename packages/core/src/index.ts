@@ -86,3 +86,13 @@ export { verifyCorrection } from './correction/verifyCorrection.js';
 export { correctBoard } from './correction/correctBoard.js';
 export type * from './correction/correctionResult.js';
 export { CORRECTION_CAUTIONS } from './correction/correctionWording.js';
+
+// Rebalancing (which circuits to move to which phase)
+export type { RebalanceSpec, AimSpec, AimFigure, LoadConditionSpec, PinSpec } from './rebalance/rebalanceSpec.js';
+export { rebalanceSpecSchema, AIM_FIGURES } from './rebalance/rebalanceSpec.js';
+export type { ConditionFigures, RebalanceObjective } from './rebalance/rebalanceObjective.js';
+export type { RebalanceOptions } from './rebalance/rebalanceBoard.js';
+export { rebalanceBoard } from './rebalance/rebalanceBoard.js';
+export type * from './rebalance/rebalanceResult.js';
+export { REBALANCE_CAUTIONS } from './rebalance/rebalanceWording.js';
+export { rewriteBoardText } from './rebalance/rewriteBoardText.js';
