@@ -29,8 +29,10 @@ export function directionSet(count: number): DirectionSet {
   return { count, cos, sin };
 }
 
-/** Sides of the polygon used at every search node: 16 sides lose at most 1.9 % of a magnitude bound. */
-export const NODE_DIRECTIONS = 16;
+/** Sides of the polygon used at search nodes: 64 sides lose at most 0.12 % of a magnitude bound. */
+export const NODE_DIRECTIONS = 64;
+/** Sides tried either side of the centre direction at a node. */
+export const NODE_WINDOW = 2;
 /** Sides used for the one-off bound reported with an answer: 256 sides lose at most 0.008 %. */
 export const REPORT_DIRECTIONS = 256;
 
@@ -60,30 +62,65 @@ export function suffixDirectionTable(p: AssignmentProblem, order: Int32Array, di
   return table;
 }
 
-/** Magnitude bounds at a node: `sums` holds the fixed part (base + circuits before `depth`). */
-export function nodeMagnitudeBounds(
-  p: AssignmentProblem,
-  sums: Float64Array,
-  sumsAt: number,
-  depth: number,
-  table: Float64Array,
-  dirs: DirectionSet,
-  out: Float64Array,
-): Float64Array {
-  const q = p.quantityCount;
-  const D = dirs.count;
-  for (let j = 0; j < q; j++) {
-    const re = sums[sumsAt + 2 * j]!;
-    const im = sums[sumsAt + 2 * j + 1]!;
-    const row = (depth * q + j) * D;
-    let best = 0;
-    for (let d = 0; d < D; d++) {
-      const v = dirs.cos[d]! * re + dirs.sin[d]! * im + table[row + d]!;
-      if (v > best) best = v;
+/**
+ * Magnitude bounds at search nodes. The best direction for |q| lies close to the
+ * direction of the centre of the reachable set (fixed part + the free circuits'
+ * mean options), so only the `window` polygon sides either side of that
+ * direction are tried: any direction gives a valid bound, and on random boards
+ * a fine polygon with a narrow window cut more nodes per microsecond than a
+ * coarse polygon tried all round.
+ */
+export class NodeBounder {
+  private readonly table: Float64Array;
+  private readonly centres: Float64Array;
+  private readonly dirs: DirectionSet;
+
+  constructor(
+    private readonly p: AssignmentProblem,
+    order: Int32Array,
+    sides = NODE_DIRECTIONS,
+    private readonly window = NODE_WINDOW,
+  ) {
+    this.dirs = directionSet(sides);
+    this.table = suffixDirectionTable(p, order, this.dirs);
+    const n = p.circuitCount;
+    const q2 = 2 * p.quantityCount;
+    this.centres = new Float64Array((n + 1) * q2);
+    for (let depth = n - 1; depth >= 0; depth--) {
+      const i = order[depth]!;
+      const k = p.optionCounts[i]!;
+      for (let j = 0; j < q2; j++) {
+        let mean = 0;
+        for (let o = 0; o < k; o++) mean += p.contributions[contributionOffset(p, i, o) + j]!;
+        this.centres[depth * q2 + j] = this.centres[(depth + 1) * q2 + j]! + mean / k;
+      }
     }
-    out[j] = best;
   }
-  return out;
+
+  /** Bounds on every magnitude below a node: `sums` at `at` holds base + the circuits before `depth`. */
+  bounds(sums: Float64Array, at: number, depth: number, out: Float64Array): Float64Array {
+    const q = this.p.quantityCount;
+    const D = this.dirs.count;
+    const { cos, sin } = this.dirs;
+    const perTurn = D / (2 * Math.PI);
+    const w = this.window;
+    for (let j = 0; j < q; j++) {
+      const re = sums[at + 2 * j]!;
+      const im = sums[at + 2 * j + 1]!;
+      const cRe = re + this.centres[depth * 2 * q + 2 * j]!;
+      const cIm = im + this.centres[depth * 2 * q + 2 * j + 1]!;
+      const row = (depth * q + j) * D;
+      const middle = Math.round(Math.atan2(cIm, cRe) * perTurn);
+      let best = 0;
+      for (let t = middle - w; t <= middle + w; t++) {
+        const d = ((t % D) + D) % D;
+        const v = cos[d]! * re + sin[d]! * im + this.table[row + d]!;
+        if (v > best) best = v;
+      }
+      out[j] = best;
+    }
+    return out;
+  }
 }
 
 /**

@@ -88,6 +88,9 @@ function resolveOptions(options: RebalanceOptions): ResolvedOptions {
   };
 }
 
+/** Kicks for the incumbent handed to branch-and-bound (which then proves or improves it). */
+const EXACT_INCUMBENT_KICKS = 30;
+
 interface Answer {
   readonly best: ScoredChoice;
   readonly lowerBound: number | null;
@@ -97,13 +100,15 @@ interface Answer {
 }
 
 /** Best answer with at most `limit` moves: local search, then branch-and-bound where it pays. */
-function answerWithin(p: AssignmentProblem, limit: number, o: ResolvedOptions, tie: number, hint: ScoredChoice | null): Answer {
+function answerWithin(p: AssignmentProblem, limit: number, o: ResolvedOptions, tie: number, hints: readonly ScoredChoice[]): Answer {
   const n = p.circuitCount;
   const starts = [homeChoice(p)];
   if (limit >= n) starts.push(greedyChoice(p));
-  if (hint) starts.push(hint.moves <= limit ? hint.choice : trimMoves(p, hint.choice, limit, tie));
-  let best = searchLocal(p, starts, { moveLimit: limit, kicks: o.kicks, seed: o.seed, tie });
+  for (const hint of hints) starts.push(hint.moves <= limit ? hint.choice : trimMoves(p, hint.choice, limit, tie));
   const exactRan = o.method === 'exact' || (o.method === 'auto' && n <= o.exactUpTo);
+  // With branch-and-bound to follow, the local search only needs a fair incumbent.
+  const kicks = exactRan ? Math.min(o.kicks, EXACT_INCUMBENT_KICKS) : o.kicks;
+  let best = searchLocal(p, starts, { moveLimit: limit, kicks, seed: o.seed, tie });
   let proven = false;
   let nodes = 0;
   if (exactRan) {
@@ -149,7 +154,7 @@ function checkCapacity(built: BuiltProblem, study: ResolvedRebalance, limit: num
         inputIssue(
           'capacity_unreachable',
           study.capacityPaths[k]!,
-          `at least ${bounds[j]!.toFixed(1)} A on line ${line} in "${layout.name}": the circuits that cannot move draw ${fixed.toFixed(1)} A on it and no spread of the others brings it lower`,
+          `a capacity of at least ${bounds[j]!.toFixed(1)} A for line ${line} in "${layout.name}": the circuits that cannot move draw ${fixed.toFixed(1)} A on it and no spread of the others brings it lower`,
           cap,
         ),
       ];
@@ -189,7 +194,7 @@ export function rebalanceBoard(board: Board, study: unknown, options: RebalanceO
   const tie = tieTolerance(home.score);
   checkCapacity(built, resolved, limit, tie);
 
-  const main = answerWithin(p, limit, o, tie, null);
+  const main = answerWithin(p, limit, o, tie, []);
   let chosen = main;
   let table: MoveTableRow[] | null = null;
   const wantTable = o.moveTable || resolved.nearBestPercent !== null;
@@ -197,10 +202,10 @@ export function rebalanceBoard(board: Board, study: unknown, options: RebalanceO
     table = [];
     let previous: Answer | null = null;
     for (let m = forced; m <= limit; m++) {
-      let row = m === limit ? main : answerWithin(p, m, o, tie, main.best);
+      let row: Answer = m === limit ? main : answerWithin(p, m, o, tie, previous ? [main.best, previous.best] : [main.best]);
       // An answer with fewer moves is allowed with more: rows never get worse.
       if (previous && previous.best.score <= row.best.score - tie && previous.best.excess <= tie) row = { ...row, best: previous.best };
-      table.push({ moves: m, score: row.best.score, lowerBound: row.lowerBound, proven: row.proven, movesUsed: row.best.moves });
+      table.push({ moves: m, score: row.best.score, lowerBound: row.lowerBound, proven: row.proven, movesUsed: row.best.moves, withinCapacity: row.best.excess <= tie });
       previous = row;
       if (row.best.excess <= tie && row.best.score <= main.best.score + tie && row.best.moves <= main.best.moves) break;
     }
@@ -208,7 +213,7 @@ export function rebalanceBoard(board: Board, study: unknown, options: RebalanceO
       const best = Math.min(main.best.score, ...table.map((r) => r.score));
       const target = best * (1 + resolved.nearBestPercent / 100) + tie;
       const row = table.find((r) => r.score <= target);
-      if (row && row.moves < limit) chosen = answerWithin(p, row.moves, o, tie, main.best);
+      if (row && row.moves < limit) chosen = answerWithin(p, row.moves, o, tie, [main.best]);
     }
   }
 

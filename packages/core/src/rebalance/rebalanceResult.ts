@@ -31,6 +31,11 @@ export interface MoveTableRow {
   readonly proven: boolean;
   /** Moves the best answer of this row actually uses (≤ `moves`). */
   readonly movesUsed: number;
+  /**
+   * False when no answer found with this many moves keeps every line within its capacity
+   * (then `proven` means none exists, and `score` is that of the answer exceeding it least).
+   */
+  readonly withinCapacity: boolean;
 }
 
 export interface RebalanceReport {

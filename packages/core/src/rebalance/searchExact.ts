@@ -15,7 +15,7 @@ import {
   type AssignmentProblem,
   type ScoredChoice,
 } from './assignmentProblem.js';
-import { directionSet, NODE_DIRECTIONS, nodeMagnitudeBounds, suffixDirectionTable } from './assignmentBounds.js';
+import { NodeBounder } from './assignmentBounds.js';
 
 export interface ExactSearchOptions {
   readonly moveLimit: number;
@@ -59,8 +59,7 @@ export function searchExact(p: AssignmentProblem, options: ExactSearchOptions): 
   const n = p.circuitCount;
   const q2 = 2 * p.quantityCount;
   const order = searchOrder(p);
-  const dirs = directionSet(NODE_DIRECTIONS);
-  const table = suffixDirectionTable(p, order, dirs);
+  const bounder = new NodeBounder(p, order);
   const { moveLimit, nodeBudget, tie } = options;
 
   // Sum of the present options from each depth on, for the "no moves left" shortcut.
@@ -131,7 +130,7 @@ export function searchExact(p: AssignmentProblem, options: ExactSearchOptions): 
       if (childMoves > moveLimit) continue;
       const c = contributionOffset(p, i, k);
       for (let j = 0; j < q2; j++) sums[next + j] = sums[at + j]! + p.contributions[c + j]!;
-      const lb = nodeMagnitudeBounds(p, sums, next, depth + 1, table, dirs, mags);
+      const lb = bounder.bounds(sums, next, depth + 1, mags);
       let reachable = true;
       for (let j = 0; j < p.quantityCount; j++) if (lb[j]! > p.limits[j]! + tie) reachable = false;
       if (!reachable) continue;
