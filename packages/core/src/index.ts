@@ -25,6 +25,7 @@ export type {
 export { boardSchema } from './board/boardSchema.js';
 export type { BoardValidation } from './board/validateBoard.js';
 export { validateBoard, parseBoard, readBoardText, parseBoardText } from './board/validateBoard.js';
+export { BOARD_TEXT_LIMITS } from './board/readBoardText.js';
 export { boardJsonSchema } from './board/boardJsonSchema.js';
 export { acceptedConnections } from './board/boardRules.js';
 export type { Board, BoardLoad, LoadBranch, Terminal, ZipFractions, PhaseId } from './board/boardModel.js';
@@ -49,6 +50,11 @@ export { boardPowerDefinitions, effectiveQuantities } from './analysis/powerDefi
 export { analyseSolution } from './analysis/analyseSolution.js';
 export { powerReading } from './analysis/powerReading.js';
 export { studyOpenNeutral } from './analysis/studyOpenNeutral.js';
+export { OPEN_NEUTRAL_LIMITS, OPEN_NEUTRAL_METHOD } from './analysis/openNeutralWording.js';
+export type { NeutralBreakPath, FollowNeutralBreakOptions } from './analysis/followNeutralBreak.js';
+export { followNeutralBreak, withNeutralFault } from './analysis/followNeutralBreak.js';
+export type { NewtonOptions, NewtonOutcome } from './network/solveNetworkByNewton.js';
+export { solveNetworkByNewton } from './network/solveNetworkByNewton.js';
 export { WARNING_THRESHOLDS } from './analysis/boardWarnings.js';
 
 // Correction
