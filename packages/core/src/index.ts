@@ -22,7 +22,7 @@ export type {
   ConnectionSpec,
   LoadModelName,
 } from './board/boardSchema.js';
-export { boardSchema } from './board/boardSchema.js';
+export { boardSchema, PHYSICAL_RANGES } from './board/boardSchema.js';
 export type { BoardValidation } from './board/validateBoard.js';
 export { validateBoard, parseBoard, readBoardText, parseBoardText } from './board/validateBoard.js';
 export { BOARD_TEXT_LIMITS } from './board/readBoardText.js';
