@@ -5,6 +5,8 @@ import type { CliIo } from './io.js';
 import { runSolve } from './commands/solve.js';
 import { runSchema } from './commands/schema.js';
 import { runCorrect, type CorrectCommandOptions } from './commands/correct.js';
+import { DIAGRAM_VIEWS, runDiagram, type DiagramCommandOptions } from './commands/diagram.js';
+import { runReport, type ReportCommandOptions } from './commands/report.js';
 import packageJson from '../package.json' with { type: 'json' };
 
 export const VERSION: string = packageJson.version;
@@ -35,6 +37,20 @@ Examples:
 Exit codes: as for solve, plus
   5  the study ran but the target cannot be met with the allowed equipment (the report says why
      and shows the best reachable result)`;
+
+const DIAGRAM_EXAMPLES = `
+Examples:
+  trivar diagram examples/corner-bakery.yaml -o bakery-phasors.svg
+  trivar diagram examples/riverside-cold-store.yaml --with-correction -o cold-store.svg
+  trivar diagram examples/riverside-cold-store.yaml --view triangles -o triangles.svg
+  trivar diagram examples/hillside-workshop.yaml --view sequence > sequence.svg`;
+
+const REPORT_EXAMPLES = `
+The report includes the correction study when the board file has a "correction:" section.
+
+Examples:
+  trivar report examples/riverside-cold-store.yaml -o cold-store.html
+  trivar report examples/corner-bakery.yaml --format md -o bakery.md   (writes bakery-*.svg beside it)`;
 
 function numberIn(min: number, max: number, what: string) {
   return (text: string): number => {
@@ -90,6 +106,30 @@ export function createProgram(io: CliIo, outcome: RunOutcome = { exitCode: EXIT.
       const report = await runCorrect(board, opts, io);
       const missed = report.status === 'infeasible' || report.status === 'misses-target-with-available-units' || report.status === 'no-suitable-units';
       if (missed) outcome.exitCode = EXIT.targetNotMet;
+    });
+
+  program
+    .command('diagram')
+    .description('draw the board as SVG: phasors (voltages, line and neutral currents), sequence components, or per-line current triangles')
+    .argument('<board>', 'board file (YAML or JSON), or - for standard input')
+    .addOption(new Option('--view <name>', 'what to draw').choices([...DIAGRAM_VIEWS]).default('phasors'))
+    .option('--with-correction', "overlay the board before and after the board file's correction study")
+    .option('-o, --output <file>', 'write the SVG to this file (default: standard output)')
+    .addHelpText('after', DIAGRAM_EXAMPLES)
+    .action(async (board: string, opts: DiagramCommandOptions) => {
+      await runDiagram(board, opts, io);
+    });
+
+  program
+    .command('report')
+    .description('write a self-contained report of the board (HTML, or Markdown with SVG figures beside it)')
+    .argument('<board>', 'board file (YAML or JSON), or - for standard input')
+    .option('-o, --output <file>', 'report file to write (HTML may go to standard output)')
+    .addOption(new Option('--format <kind>', 'report format').choices(['html', 'md']).default('html'))
+    .option('--no-correction', "leave out the board file's correction study")
+    .addHelpText('after', REPORT_EXAMPLES)
+    .action(async (board: string, opts: ReportCommandOptions) => {
+      await runReport(board, opts, io, `Made with trivar ${VERSION}. Figures come from the model entered; check them against measurements and local codes.`);
     });
 
   program

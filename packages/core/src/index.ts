@@ -33,6 +33,9 @@ export { normaliseBoard } from './board/normaliseBoard.js';
 // Solving
 export type { SolveOptions, NetworkSolution, BranchState } from './network/solveNetwork.js';
 export { solveNetwork, terminalVoltage } from './network/solveNetwork.js';
+export type { CompiledBoard } from './network/solveNetwork.js';
+export { compileBoard, solveCompiledBoard } from './network/solveNetwork.js';
+export type { CompiledNetwork } from './network/compiledNetwork.js';
 export type { SolveBoardOptions } from './solveBoard.js';
 export { solveBoard, solveBoardModel } from './solveBoard.js';
 
@@ -46,6 +49,11 @@ export { boardPowerDefinitions, effectiveQuantities } from './analysis/powerDefi
 export { analyseSolution } from './analysis/analyseSolution.js';
 export { powerReading } from './analysis/powerReading.js';
 export { studyOpenNeutral } from './analysis/studyOpenNeutral.js';
+export { OPEN_NEUTRAL_LIMITS, OPEN_NEUTRAL_METHOD } from './analysis/openNeutralWording.js';
+export type { NeutralBreakPath, FollowNeutralBreakOptions } from './analysis/followNeutralBreak.js';
+export { followNeutralBreak, withNeutralFault } from './analysis/followNeutralBreak.js';
+export type { NewtonOptions, NewtonOutcome } from './network/solveNetworkByNewton.js';
+export { solveNetworkByNewton } from './network/solveNetworkByNewton.js';
 export { WARNING_THRESHOLDS } from './analysis/boardWarnings.js';
 
 // Correction
@@ -90,3 +98,17 @@ export { verifyCorrection } from './correction/verifyCorrection.js';
 export { correctBoard } from './correction/correctBoard.js';
 export type * from './correction/correctionResult.js';
 export { CORRECTION_CAUTIONS } from './correction/correctionWording.js';
+
+// Drawings and reports (SVG/HTML/Markdown text; the CLI writes the files)
+export type { PhasorDiagramOptions } from './render/renderPhasorDiagram.js';
+export { renderPhasorDiagram } from './render/renderPhasorDiagram.js';
+export { renderSequenceDiagram } from './render/renderSequenceDiagram.js';
+export type { CurrentTriangleOptions, LineCurrentParts } from './render/renderCurrentTriangles.js';
+export { renderCurrentTriangles, lineCurrentParts } from './render/renderCurrentTriangles.js';
+export type { ReportDocument, ReportSection, ReportBlock, ReportColumn } from './render/report/reportDocument.js';
+export type { BoardReportInput } from './render/report/buildBoardReport.js';
+export { buildBoardReport } from './render/report/buildBoardReport.js';
+export type { ReportHtmlOptions } from './render/report/renderReportHtml.js';
+export { renderReportHtml } from './render/report/renderReportHtml.js';
+export type { MarkdownReport } from './render/report/renderReportMarkdown.js';
+export { renderReportMarkdown } from './render/report/renderReportMarkdown.js';
