@@ -1,7 +1,7 @@
 /** The trivar command line: commands wired to core; no physics here. */
 import { Command, CommanderError, InvalidArgumentError, Option } from 'commander';
 import { EXIT, exitCodeFor, messageFor } from './exitCodes.js';
-import type { CliIo } from './io.js';
+import { DEFAULT_MAX_INPUT_MB, type CliIo } from './io.js';
 import { runSolve } from './commands/solve.js';
 import { runSchema } from './commands/schema.js';
 import { runCorrect, type CorrectCommandOptions } from './commands/correct.js';
@@ -23,6 +23,7 @@ Exit codes:
   2  the command line is wrong
   3  the board file cannot be read or is not valid (every problem is listed with its field path)
   4  the board has no solution (singular network, or loads beyond what the supply can deliver)
+  6  the output could not be written (disk full); a reader closing the pipe early ends trivar quietly with 0
   1  internal error (a bug in trivar)`;
 
 const CORRECT_EXAMPLES = `
@@ -60,6 +61,13 @@ function numberIn(min: number, max: number, what: string) {
   };
 }
 
+/** The read limit for board files and standard input, checked while reading. */
+function maxInputOption(): Option {
+  return new Option('--max-input-mb <MB>', `refuse a board larger than this (default ${DEFAULT_MAX_INPUT_MB} MB)`).argParser(
+    numberIn(0, 4096, 'a size in MB above 0 and at most 4096'),
+  );
+}
+
 /** What a command that ran to the end reports through the exit code (set by `correct`). */
 export interface RunOutcome {
   exitCode: number;
@@ -80,6 +88,7 @@ export function createProgram(io: CliIo, outcome: RunOutcome = { exitCode: EXIT.
     .argument('<board>', 'board file (YAML or JSON), or - for standard input')
     .option('--json', 'print the full result as JSON instead of the report')
     .option('--open-neutral', 'also show what each line-to-neutral load would see if the neutral conductor broke')
+    .addOption(maxInputOption())
     .addHelpText('after', SOLVE_EXAMPLES)
     .action(async (board: string, opts: { json?: boolean; openNeutral?: boolean }) => {
       await runSolve(board, opts, io);
@@ -101,6 +110,7 @@ export function createProgram(io: CliIo, outcome: RunOutcome = { exitCode: EXIT.
     .addOption(new Option('--outputs <n>', 'switched outputs of the bank controller').choices(['6', '8', '12']))
     .option('--ct <amps>', 'primary of the controller current transformer, A', numberIn(0, 1e6, 'a current above 0 A'))
     .option('--json', 'print the full report as JSON instead of the text report')
+    .addOption(maxInputOption())
     .addHelpText('after', CORRECT_EXAMPLES)
     .action(async (board: string, opts: CorrectCommandOptions) => {
       const report = await runCorrect(board, opts, io);

@@ -25,6 +25,7 @@ export type {
 export { boardSchema } from './board/boardSchema.js';
 export type { BoardValidation } from './board/validateBoard.js';
 export { validateBoard, parseBoard, readBoardText, parseBoardText } from './board/validateBoard.js';
+export { BOARD_TEXT_LIMITS } from './board/readBoardText.js';
 export { boardJsonSchema } from './board/boardJsonSchema.js';
 export { acceptedConnections } from './board/boardRules.js';
 export type { Board, BoardLoad, LoadBranch, Terminal, ZipFractions, PhaseId } from './board/boardModel.js';
