@@ -22,7 +22,7 @@ export type {
   ConnectionSpec,
   LoadModelName,
 } from './board/boardSchema.js';
-export { boardSchema } from './board/boardSchema.js';
+export { boardSchema, PHYSICAL_RANGES } from './board/boardSchema.js';
 export type { BoardValidation } from './board/validateBoard.js';
 export { validateBoard, parseBoard, readBoardText, parseBoardText } from './board/validateBoard.js';
 export { BOARD_TEXT_LIMITS } from './board/readBoardText.js';
@@ -68,7 +68,9 @@ export type {
   CapacitanceToleranceSpec,
   Arrangement,
   TargetDefinition,
-  StepPattern,
+  Practice,
+  ControllerSpec,
+  BalanceTargetSpec,
 } from './correction/correctionSpec.js';
 export { correctionSpecSchema } from './correction/correctionSpec.js';
 export type { CorrectionSpecValidation } from './correction/validateCorrectionSpec.js';
@@ -80,7 +82,9 @@ export type { EquipmentGroup, EquipmentBranch, EquipmentTerminal, BranchSlot, Ad
 export { addCorrectionEquipment } from './correction/equipment.js';
 export type { AppliedConditions, CapacitorOutput } from './correction/capacitorOutput.js';
 export { capacitorOutput } from './correction/capacitorOutput.js';
-export { TYPICAL_CAPACITOR_UNITS } from './correction/typicalCapacitorUnits.js';
+export type { CatalogueUnit, TypicalCatalogue } from './correction/unitCatalogues.js';
+export { TYPICAL_CATALOGUES } from './correction/unitCatalogues.js';
+export { controllerSettings, responseThresholdA, standardCtPrimaryA } from './correction/controllerSettings.js';
 export { scaleBoardLoads } from './correction/scaleBoardLoads.js';
 export type { StarBankOptions } from './correction/sizeStarBank.js';
 export { sizeStarBank } from './correction/sizeStarBank.js';
@@ -89,7 +93,7 @@ export { sizeDeltaBank } from './correction/sizeDeltaBank.js';
 export type { CompensatorOptions } from './correction/sizeBalancingCompensator.js';
 export { sizeBalancingCompensator } from './correction/sizeBalancingCompensator.js';
 export type { SelectBankUnitsOptions } from './correction/selectBankUnits.js';
-export { selectBankUnits } from './correction/selectBankUnits.js';
+export { selectBankUnits, defaultPractice } from './correction/selectBankUnits.js';
 export type { VerifyCorrectionOptions } from './correction/verifyCorrection.js';
 export { verifyCorrection } from './correction/verifyCorrection.js';
 export { correctBoard } from './correction/correctBoard.js';
@@ -120,6 +124,16 @@ export { solveFixedNetwork } from './network/solveFixedNetwork.js';
 export type { PassiveNetworkPlan, NodalMatrix } from './network/terminalImpedance.js';
 export { planPassiveNetwork } from './network/terminalImpedance.js';
 
+// Rebalancing (which circuits to move to which phase)
+export type { RebalanceSpec, AimSpec, AimFigure, LoadConditionSpec, PinSpec } from './rebalance/rebalanceSpec.js';
+export { rebalanceSpecSchema, AIM_FIGURES } from './rebalance/rebalanceSpec.js';
+export type { ConditionFigures, RebalanceObjective } from './rebalance/rebalanceObjective.js';
+export type { RebalanceOptions } from './rebalance/rebalanceBoard.js';
+export { rebalanceBoard } from './rebalance/rebalanceBoard.js';
+export type * from './rebalance/rebalanceResult.js';
+export { REBALANCE_CAUTIONS } from './rebalance/rebalanceWording.js';
+export { rewriteBoardText } from './rebalance/rewriteBoardText.js';
+
 // Drawings and reports (SVG/HTML/Markdown text; the CLI writes the files)
 export type { PhasorDiagramOptions } from './render/renderPhasorDiagram.js';
 export { renderPhasorDiagram } from './render/renderPhasorDiagram.js';
@@ -133,3 +147,11 @@ export type { ReportHtmlOptions } from './render/report/renderReportHtml.js';
 export { renderReportHtml } from './render/report/renderReportHtml.js';
 export type { MarkdownReport } from './render/report/renderReportMarkdown.js';
 export { renderReportMarkdown } from './render/report/renderReportMarkdown.js';
+
+// Checking hand calculations (trivar check)
+export type { HandFiguresSpec, HandCapacitorSpec, HandBranch } from './handCheck/handFiguresSpec.js';
+export { handFiguresSchema } from './handCheck/handFiguresSpec.js';
+export { parseHandFigures } from './handCheck/validateHandFigures.js';
+export type * from './handCheck/handCheckResult.js';
+export { checkHandFigures } from './handCheck/checkHandFigures.js';
+export { textbookWorking } from './handCheck/textbookWorking.js';
