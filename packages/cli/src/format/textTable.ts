@@ -17,6 +17,27 @@ export function renderTable(columns: readonly Column[], rows: readonly (readonly
   return [line(columns.map((c) => c.header)), rule, ...rows.map(line)].join('\n');
 }
 
+/** Characters as a reader counts them (code points, so ∠ and · count once). */
+export const textWidth = (text: string): number => [...text].length;
+
+/**
+ * `renderTable`, with the text column `shrink` cut (ending in "…", never below
+ * `MIN_CUT` characters) until the table fits `width`. Names are the user's own,
+ * so a cut name stays recognisable; the JSON result has them in full.
+ */
+export function renderTableWithin(columns: readonly Column[], rows: readonly (readonly string[])[], shrink = 0, width = REPORT_WIDTH): string {
+  const table = renderTable(columns, rows);
+  const widest = Math.max(...table.split('\n').map(textWidth));
+  if (widest <= width) return table;
+  const longest = Math.max(...rows.map((r) => textWidth(r[shrink] ?? '')));
+  const keep = Math.max(MIN_CUT, longest - (widest - width));
+  const cut = (cell: string) => (textWidth(cell) <= keep ? cell : `${[...cell].slice(0, keep - 1).join('')}…`);
+  return renderTable(columns, rows.map((r) => r.map((cell, k) => (k === shrink ? cut(cell) : cell))));
+}
+
+/** Shortest a cut name may get. */
+const MIN_CUT = 12;
+
 /** Fixed decimals, with "-0.0" shown as "0.0". */
 export function fixed(x: number, digits: number): string {
   const s = x.toFixed(digits);
@@ -38,7 +59,7 @@ export function wrapParagraph(text: string, first: string, rest = ' '.repeat(fir
   let line = first;
   let empty = true;
   for (const word of text.split(/\s+/).filter(Boolean)) {
-    if (!empty && line.length + 1 + word.length > width) {
+    if (!empty && textWidth(line) + 1 + textWidth(word) > width) {
       lines.push(line);
       line = rest + word;
     } else line += (empty ? '' : ' ') + word;
