@@ -1,12 +1,13 @@
 /** The trivar command line: commands wired to core; no physics here. */
 import { Command, CommanderError, InvalidArgumentError, Option } from 'commander';
 import { EXIT, exitCodeFor, messageFor } from './exitCodes.js';
-import type { CliIo } from './io.js';
+import { DEFAULT_MAX_INPUT_MB, type CliIo } from './io.js';
 import { runSolve } from './commands/solve.js';
 import { runSchema } from './commands/schema.js';
 import { runCorrect, type CorrectCommandOptions } from './commands/correct.js';
 import { DIAGRAM_VIEWS, runDiagram, type DiagramCommandOptions } from './commands/diagram.js';
 import { runReport, type ReportCommandOptions } from './commands/report.js';
+import { runCheck, type CheckCommandOptions } from './commands/check.js';
 import packageJson from '../package.json' with { type: 'json' };
 
 export const VERSION: string = packageJson.version;
@@ -23,6 +24,7 @@ Exit codes:
   2  the command line is wrong
   3  the board file cannot be read or is not valid (every problem is listed with its field path)
   4  the board has no solution (singular network, or loads beyond what the supply can deliver)
+  6  the output could not be written (disk full); a reader closing the pipe early ends trivar quietly with 0
   1  internal error (a bug in trivar)`;
 
 const CORRECT_EXAMPLES = `
@@ -52,12 +54,31 @@ Examples:
   trivar report examples/riverside-cold-store.yaml -o cold-store.html
   trivar report examples/corner-bakery.yaml --format md -o bakery.md   (writes bakery-*.svg beside it)`;
 
+const CHECK_EXAMPLES = `
+The figures file (YAML or JSON) lists the capacitors you chose and, if you like, what you expect:
+  targetPf: 0.95
+  capacitors:
+    - { branch: A-B, kvar: 16 }              # nameplate kvar (at ratedV, default the branch's nominal voltage)
+    - { branch: C-N, uF: 250 }               # or the capacitance
+  expected: { pf: 0.95, neutralA: 20, lines: { A: { currentA: 170, pf: 0.95 } } }
+
+Examples:
+  trivar check examples/riverside-cold-store.yaml examples/hand-figures/riverside-cold-store.yaml
+  trivar check board.yaml my-figures.yaml --json`;
+
 function numberIn(min: number, max: number, what: string) {
   return (text: string): number => {
     const x = Number(text);
     if (!Number.isFinite(x) || x <= min || x > max) throw new InvalidArgumentError(`expected ${what}.`);
     return x;
   };
+}
+
+/** The read limit for board files and standard input, checked while reading. */
+function maxInputOption(): Option {
+  return new Option('--max-input-mb <MB>', `refuse a board larger than this (default ${DEFAULT_MAX_INPUT_MB} MB)`).argParser(
+    numberIn(0, 4096, 'a size in MB above 0 and at most 4096'),
+  );
 }
 
 /** What a command that ran to the end reports through the exit code (set by `correct`). */
@@ -80,6 +101,7 @@ export function createProgram(io: CliIo, outcome: RunOutcome = { exitCode: EXIT.
     .argument('<board>', 'board file (YAML or JSON), or - for standard input')
     .option('--json', 'print the full result as JSON instead of the report')
     .option('--open-neutral', 'also show what each line-to-neutral load would see if the neutral conductor broke')
+    .addOption(maxInputOption())
     .addHelpText('after', SOLVE_EXAMPLES)
     .action(async (board: string, opts: { json?: boolean; openNeutral?: boolean }) => {
       await runSolve(board, opts, io);
@@ -97,12 +119,15 @@ export function createProgram(io: CliIo, outcome: RunOutcome = { exitCode: EXIT.
     .option('--allow-leading', 'let a line end up leading (default: never leading)')
     .option('--upper-pf <value>', 'do not correct beyond this lagging power factor', numberIn(0, 1, 'a power factor above 0 and at most 1'))
     .option('--light-load <fraction>', 'check the fixed part at this fraction of every load (0-1)', numberIn(-1e-12, 1, 'a fraction from 0 to 1'))
-    .addOption(new Option('--pattern <steps>', 'switched-step ratios of the bank').choices(['fixed', '1:1:1', '1:2:2', '1:2:4']))
+    .addOption(new Option('--practice <region>', 'regional practice: typical catalogue, voltage margin, discharge time').choices(['iec', 'north-american']))
+    .addOption(new Option('--outputs <n>', 'switched outputs of the bank controller').choices(['6', '8', '12']))
+    .option('--ct <amps>', 'primary of the controller current transformer, A', numberIn(0, 1e6, 'a current above 0 A'))
     .option('--json', 'print the full report as JSON instead of the text report')
+    .addOption(maxInputOption())
     .addHelpText('after', CORRECT_EXAMPLES)
     .action(async (board: string, opts: CorrectCommandOptions) => {
       const report = await runCorrect(board, opts, io);
-      const missed = report.status === 'infeasible' || report.status === 'misses-target-with-available-units';
+      const missed = report.status === 'infeasible' || report.status === 'misses-target-with-available-units' || report.status === 'no-suitable-units';
       if (missed) outcome.exitCode = EXIT.targetNotMet;
     });
 
@@ -128,6 +153,17 @@ export function createProgram(io: CliIo, outcome: RunOutcome = { exitCode: EXIT.
     .addHelpText('after', REPORT_EXAMPLES)
     .action(async (board: string, opts: ReportCommandOptions) => {
       await runReport(board, opts, io, `Made with trivar ${VERSION}. Figures come from the model entered; check them against measurements and local codes.`);
+    });
+
+  program
+    .command('check')
+    .description('check a hand calculation: solve the board with the capacitors you chose and explain each difference from the textbook figures')
+    .argument('<board>', 'board file (YAML or JSON), or - for standard input')
+    .argument('<figures>', 'your hand figures (YAML or JSON): capacitors per phase or line pair, expected PF and currents')
+    .option('--json', 'print the full result as JSON instead of the report')
+    .addHelpText('after', CHECK_EXAMPLES)
+    .action(async (board: string, figures: string, opts: CheckCommandOptions) => {
+      await runCheck(board, figures, opts, io);
     });
 
   program

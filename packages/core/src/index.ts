@@ -25,6 +25,7 @@ export type {
 export { boardSchema } from './board/boardSchema.js';
 export type { BoardValidation } from './board/validateBoard.js';
 export { validateBoard, parseBoard, readBoardText, parseBoardText } from './board/validateBoard.js';
+export { BOARD_TEXT_LIMITS } from './board/readBoardText.js';
 export { boardJsonSchema } from './board/boardJsonSchema.js';
 export { acceptedConnections } from './board/boardRules.js';
 export type { Board, BoardLoad, LoadBranch, Terminal, ZipFractions, PhaseId } from './board/boardModel.js';
@@ -67,7 +68,9 @@ export type {
   CapacitanceToleranceSpec,
   Arrangement,
   TargetDefinition,
-  StepPattern,
+  Practice,
+  ControllerSpec,
+  BalanceTargetSpec,
 } from './correction/correctionSpec.js';
 export { correctionSpecSchema } from './correction/correctionSpec.js';
 export type { CorrectionSpecValidation } from './correction/validateCorrectionSpec.js';
@@ -79,7 +82,9 @@ export type { EquipmentGroup, EquipmentBranch, EquipmentTerminal, BranchSlot, Ad
 export { addCorrectionEquipment } from './correction/equipment.js';
 export type { AppliedConditions, CapacitorOutput } from './correction/capacitorOutput.js';
 export { capacitorOutput } from './correction/capacitorOutput.js';
-export { TYPICAL_CAPACITOR_UNITS } from './correction/typicalCapacitorUnits.js';
+export type { CatalogueUnit, TypicalCatalogue } from './correction/unitCatalogues.js';
+export { TYPICAL_CATALOGUES } from './correction/unitCatalogues.js';
+export { controllerSettings, responseThresholdA, standardCtPrimaryA } from './correction/controllerSettings.js';
 export { scaleBoardLoads } from './correction/scaleBoardLoads.js';
 export type { StarBankOptions } from './correction/sizeStarBank.js';
 export { sizeStarBank } from './correction/sizeStarBank.js';
@@ -88,7 +93,7 @@ export { sizeDeltaBank } from './correction/sizeDeltaBank.js';
 export type { CompensatorOptions } from './correction/sizeBalancingCompensator.js';
 export { sizeBalancingCompensator } from './correction/sizeBalancingCompensator.js';
 export type { SelectBankUnitsOptions } from './correction/selectBankUnits.js';
-export { selectBankUnits } from './correction/selectBankUnits.js';
+export { selectBankUnits, defaultPractice } from './correction/selectBankUnits.js';
 export type { VerifyCorrectionOptions } from './correction/verifyCorrection.js';
 export { verifyCorrection } from './correction/verifyCorrection.js';
 export { correctBoard } from './correction/correctBoard.js';
@@ -108,3 +113,11 @@ export type { ReportHtmlOptions } from './render/report/renderReportHtml.js';
 export { renderReportHtml } from './render/report/renderReportHtml.js';
 export type { MarkdownReport } from './render/report/renderReportMarkdown.js';
 export { renderReportMarkdown } from './render/report/renderReportMarkdown.js';
+
+// Checking hand calculations (trivar check)
+export type { HandFiguresSpec, HandCapacitorSpec, HandBranch } from './handCheck/handFiguresSpec.js';
+export { handFiguresSchema } from './handCheck/handFiguresSpec.js';
+export { parseHandFigures } from './handCheck/validateHandFigures.js';
+export type * from './handCheck/handCheckResult.js';
+export { checkHandFigures } from './handCheck/checkHandFigures.js';
+export { textbookWorking } from './handCheck/textbookWorking.js';

@@ -1,11 +1,12 @@
 /** The broken-neutral study as a section of `trivar solve`. */
 import { OPEN_NEUTRAL_METHOD, type OpenNeutralLoadReading, type OpenNeutralStudy } from '@trivar/core';
-import { fixed, renderTableWithin, REPORT_WIDTH, wrapParagraph } from './textTable.js';
+import { fixed, renderTableWithin } from './textTable.js';
+import { REPORT_WIDTH, wrapText } from './wrapText.js';
 
 const flagWord = (f: OpenNeutralLoadReading['flag']) => (f === 'ok' ? '' : f === 'over' ? 'OVER' : 'under');
 
 export function openNeutralBlock(study: OpenNeutralStudy): string {
-  if (!study.applicable) return wrapParagraph(`not applicable: ${study.note ?? ''}`, '  ');
+  if (!study.applicable) return wrapText(`not applicable: ${study.note ?? ''}`, '  ');
   const other = study.otherStates[0];
   const impedance = study.impedanceModel;
   const rows = study.loads.map((l, k) => [
@@ -37,11 +38,11 @@ export function openNeutralBlock(study: OpenNeutralStudy): string {
   ];
   const bar = study.barVoltage ? `  neutral bar floats to ${fixed(study.barVoltage.magnitude, 1)} V from the source star point` : '';
   return [
-    wrapParagraph(OPEN_NEUTRAL_METHOD, '  '),
+    wrapText(OPEN_NEUTRAL_METHOD, '  '),
     ...(bar ? [bar] : []),
     table,
-    `${wrapParagraph(key.join(' · '), '  (', '   ', REPORT_WIDTH - 1)})`,
-    ...study.findings.map((f) => wrapParagraph(f, '  ! ')),
-    ...study.cautions.map((c) => wrapParagraph(c, '  ! ')),
+    `${wrapText(key.join(' · '), '  (', '   ', REPORT_WIDTH - 1)})`,
+    ...study.findings.map((f) => wrapText(f, '  ! ')),
+    ...study.cautions.map((c) => wrapText(c, '  ! ')),
   ].join('\n');
 }

@@ -1,6 +1,7 @@
 /** BoardResult → the human-readable report of `trivar solve`. */
 import type { BoardResult } from '@trivar/core';
-import { fixed, renderTable, renderTableWithin, REPORT_WIDTH, section, wrapParagraph } from './textTable.js';
+import { fixed, renderTable, renderTableWithin, section } from './textTable.js';
+import { REPORT_WIDTH, wrapText } from './wrapText.js';
 import { exportSentence, isExport, pfCell, varWords } from './powerFlowWords.js';
 import { openNeutralBlock } from './openNeutralReport.js';
 
@@ -12,7 +13,7 @@ const SYSTEM_WORDS: Record<string, string> = {
 };
 
 /** A note in brackets under a table, wrapped to the report width. */
-const note = (text: string) => `${wrapParagraph(text, '  (', '   ', REPORT_WIDTH - 1)})`;
+const note = (text: string) => `${wrapText(text, '  (', '   ', REPORT_WIDTH - 1)})`;
 
 /** Short model names for the circuits table; the key under it spells them out. */
 const MODEL_SHORT: Record<string, string> = { 'constant-power': 'P', 'constant-current': 'I', 'constant-impedance': 'Z', zip: 'ZIP' };
@@ -30,7 +31,7 @@ export function headerLines(r: BoardResult): string[] {
     : `${fixed(b.nominalLineToNeutralV, 0)} V`;
   const seq = b.system.startsWith('three') ? ` · sequence ${b.sequence}` : '';
   return [
-    wrapParagraph(b.name, ''),
+    wrapText(b.name, ''),
     `${SYSTEM_WORDS[b.system] ?? b.system} · ${volts} · ${b.frequencyHz} Hz${seq}${b.neutralOpen ? ' · NEUTRAL OPEN' : ''}`,
   ];
 }
@@ -197,7 +198,7 @@ export function renderSolveReport(r: BoardResult): string {
     section('Power balance') + powerBlock(r),
   ];
   if (r.openNeutral) parts.push(section('If the neutral conductor broke') + openNeutralBlock(r.openNeutral));
-  parts.push(section('Warnings') + (r.warnings.length ? r.warnings.map((w) => wrapParagraph(w.message, '  ! ')).join('\n') : '  none'));
-  parts.push(section('Notes') + r.cautions.map((c) => wrapParagraph(c, '  * ')).join('\n'));
+  parts.push(section('Warnings') + (r.warnings.length ? r.warnings.map((w) => wrapText(w.message, '  ! ')).join('\n') : '  none'));
+  parts.push(section('Notes') + r.cautions.map((c) => wrapText(c, '  * ')).join('\n'));
   return `${parts.join('\n')}\n`;
 }
