@@ -1,7 +1,8 @@
 /** The report of a board: every required section, self-contained, and the same for the same board. */
 import { readFileSync, readdirSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
-import { buildBoardReport, correctBoard, normaliseBoard, parseBoard, readBoardText, renderReportHtml, renderReportMarkdown, solveBoardModel, type ReportSection } from '@trivar/core';
+import { parseSvg } from './svgReading.js';
+import { renderPhasorDiagram, buildBoardReport, correctBoard, normaliseBoard, parseBoard, readBoardText, renderReportHtml, renderReportMarkdown, solveBoardModel, type ReportSection } from '@trivar/core';
 
 const EXAMPLES = new URL('../../examples/', import.meta.url);
 const exampleFiles = readdirSync(EXAMPLES).filter((f) => f.endsWith('.yaml'));
@@ -79,6 +80,9 @@ describe('board report', () => {
     const html = renderReportHtml(buildBoardReport({ spec, result }));
     expect(html).not.toContain('<script>');
     expect(html).toContain('&lt;script&gt;alert(1)&lt;/script&gt;');
+    const svg = renderPhasorDiagram(solveBoardModel(normaliseBoard(parseBoard({ ...spec, name: 'evil\u001b[2J\u0000name' }))));
+    expect(svg).not.toMatch(/[\u0000-\u0008\u001b]/);
+    expect(() => parseSvg(svg)).not.toThrow();
     const md = renderReportMarkdown(buildBoardReport({ spec, result }), 'r').markdown;
     expect(md).toContain('L1\\|2');
   });
