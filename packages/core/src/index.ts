@@ -22,7 +22,7 @@ export type {
   ConnectionSpec,
   LoadModelName,
 } from './board/boardSchema.js';
-export { boardSchema } from './board/boardSchema.js';
+export { boardSchema, PHYSICAL_RANGES } from './board/boardSchema.js';
 export type { BoardValidation } from './board/validateBoard.js';
 export { validateBoard, parseBoard, readBoardText, parseBoardText } from './board/validateBoard.js';
 export { BOARD_TEXT_LIMITS } from './board/readBoardText.js';
@@ -68,7 +68,9 @@ export type {
   CapacitanceToleranceSpec,
   Arrangement,
   TargetDefinition,
-  StepPattern,
+  Practice,
+  ControllerSpec,
+  BalanceTargetSpec,
 } from './correction/correctionSpec.js';
 export { correctionSpecSchema } from './correction/correctionSpec.js';
 export type { CorrectionSpecValidation } from './correction/validateCorrectionSpec.js';
@@ -80,7 +82,9 @@ export type { EquipmentGroup, EquipmentBranch, EquipmentTerminal, BranchSlot, Ad
 export { addCorrectionEquipment } from './correction/equipment.js';
 export type { AppliedConditions, CapacitorOutput } from './correction/capacitorOutput.js';
 export { capacitorOutput } from './correction/capacitorOutput.js';
-export { TYPICAL_CAPACITOR_UNITS } from './correction/typicalCapacitorUnits.js';
+export type { CatalogueUnit, TypicalCatalogue } from './correction/unitCatalogues.js';
+export { TYPICAL_CATALOGUES } from './correction/unitCatalogues.js';
+export { controllerSettings, responseThresholdA, standardCtPrimaryA } from './correction/controllerSettings.js';
 export { scaleBoardLoads } from './correction/scaleBoardLoads.js';
 export type { StarBankOptions } from './correction/sizeStarBank.js';
 export { sizeStarBank } from './correction/sizeStarBank.js';
@@ -89,12 +93,22 @@ export { sizeDeltaBank } from './correction/sizeDeltaBank.js';
 export type { CompensatorOptions } from './correction/sizeBalancingCompensator.js';
 export { sizeBalancingCompensator } from './correction/sizeBalancingCompensator.js';
 export type { SelectBankUnitsOptions } from './correction/selectBankUnits.js';
-export { selectBankUnits } from './correction/selectBankUnits.js';
+export { selectBankUnits, defaultPractice } from './correction/selectBankUnits.js';
 export type { VerifyCorrectionOptions } from './correction/verifyCorrection.js';
 export { verifyCorrection } from './correction/verifyCorrection.js';
 export { correctBoard } from './correction/correctBoard.js';
 export type * from './correction/correctionResult.js';
 export { CORRECTION_CAUTIONS } from './correction/correctionWording.js';
+
+// Rebalancing (which circuits to move to which phase)
+export type { RebalanceSpec, AimSpec, AimFigure, LoadConditionSpec, PinSpec } from './rebalance/rebalanceSpec.js';
+export { rebalanceSpecSchema, AIM_FIGURES } from './rebalance/rebalanceSpec.js';
+export type { ConditionFigures, RebalanceObjective } from './rebalance/rebalanceObjective.js';
+export type { RebalanceOptions } from './rebalance/rebalanceBoard.js';
+export { rebalanceBoard } from './rebalance/rebalanceBoard.js';
+export type * from './rebalance/rebalanceResult.js';
+export { REBALANCE_CAUTIONS } from './rebalance/rebalanceWording.js';
+export { rewriteBoardText } from './rebalance/rewriteBoardText.js';
 
 // Drawings and reports (SVG/HTML/Markdown text; the CLI writes the files)
 export type { PhasorDiagramOptions } from './render/renderPhasorDiagram.js';
