@@ -4,7 +4,8 @@
  *
  * The issue's case: a 100-load board with an 8-step bank, |Z| of every pair
  * (3 phase-to-neutral, 3 line-to-line) at h = 1 … 50 in steps of 0.05 for every
- * one of the 2⁸ = 256 step combinations. Reported:
+ * one of the 2⁸ = 256 step combinations (binary-weighted steps, so all 256 are
+ * distinct networks and none is skipped as a duplicate). Reported:
  * 1. the whole `scanResonance` (grid, peak search and refinement) — goal < 1 s;
  * 2. where the grid time goes: per-order stamping of the 100 loads (`prepare`)
  *    against per-combination work (bank stamps, nodal inverse, pair read-out);
@@ -45,7 +46,9 @@ function benchBoard(): BoardSpec {
     supply: { system: 'three-phase-4wire', voltage: { lineToLine: 400 }, frequencyHz: 50, transformer: { kVA: 1000, impedancePercent: 6, xOverR: 7 } },
     feeder: { line: { r: 0.002, x: 0.0015 }, neutral: { r: 0.003, x: 0.0015 } },
     loads,
-    harmonics: { bank: { connection: 'delta', ratedV: 440, stepsKvar: [25, 25, 50, 50, 50, 50, 50, 50] }, scan: { maxOrder: 50, step: 0.05 } },
+    // Binary-weighted steps: all 256 combinations are different networks (equal steps would let
+    // the scan evaluate electrically identical combinations once, see stateKey).
+    harmonics: { bank: { connection: 'delta', ratedV: 440, stepsKvar: [2.5, 5, 10, 20, 40, 80, 160, 320] }, scan: { maxOrder: 50, step: 0.05 } },
   };
 }
 

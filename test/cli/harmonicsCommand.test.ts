@@ -35,3 +35,23 @@ describe('trivar harmonics (built binary)', () => {
     expect(r.stderr).not.toMatch(/\bat .*\.js:\d+/);
   });
 });
+
+describe('trivar correct with harmonic data (built binary)', () => {
+  const works = 'examples/quayside-print-works.yaml';
+  it('compares the plain bank with detuned variants and reports the chosen detuned bank', () => {
+    const r = runTrivar(['correct', works]);
+    expect(r.stderr).toBe('');
+    expect(r.code).toBe(0);
+    expect(r.stdout).toContain('MEETS THE TARGET — delta bank with 7 % detuning reactors');
+    expect(r.stdout).toContain('Harmonic check: plain and detuned banks');
+    expect(r.stdout).toMatch(/plain .* FAILS/);
+    expect(r.stdout).toMatch(/detuned 7 % \* .* passes/);
+    expect(r.stdout).toContain('a detuned bank keeps it below its tuning order');
+  });
+  it('--json carries the comparison and the chosen bank’s harmonic study', () => {
+    const report = JSON.parse(runTrivar(['correct', works, '--json']).stdout);
+    expect(report.harmonics.chosen).toBe('detuned 7 %');
+    expect(report.harmonics.check.scan.combinations.length).toBe(2 ** report.selection.controller.outputsUsed);
+    expect(report.selection.steps.every((s: { detuningFactor: number }) => s.detuningFactor === 0.07)).toBe(true);
+  });
+});

@@ -107,7 +107,7 @@ export { harmonicsSectionSchema, MAX_ORDER } from './harmonics/harmonicsSpec.js'
 export type { SpectrumKind, TypicalSpectrum } from './harmonics/typicalSpectra.js';
 export { TYPICAL_SPECTRA, SPECTRUM_KINDS } from './harmonics/typicalSpectra.js';
 export type { HarmonicModel, LoadBehaviour, OrderContent, BankModel } from './harmonics/harmonicModel.js';
-export { resolveHarmonicModel, addInstalledBank, ordersPresent } from './harmonics/harmonicModel.js';
+export { resolveHarmonicModel, addInstalledBank, ordersPresent, stateKey } from './harmonics/harmonicModel.js';
 export { solveAtOrder, impedanceAtOrder, branchAdmittanceAtOrder } from './harmonics/networkAtOrder.js';
 export type { OrderSolution } from './harmonics/readHarmonics.js';
 export type { HarmonicsOptions } from './harmonics/studyHarmonics.js';
@@ -123,6 +123,8 @@ export type { FixedNetworkInput } from './network/solveFixedNetwork.js';
 export { solveFixedNetwork } from './network/solveFixedNetwork.js';
 export type { PassiveNetworkPlan, NodalMatrix } from './network/terminalImpedance.js';
 export { planPassiveNetwork } from './network/terminalImpedance.js';
+export type { CorrectionVariant, CorrectionHarmonics, HarmonicCorrectionReport } from './harmonics/correctWithHarmonics.js';
+export { correctWithHarmonics, boardHasHarmonicData, bankOfReport } from './harmonics/correctWithHarmonics.js';
 
 // Rebalancing (which circuits to move to which phase)
 export type { RebalanceSpec, AimSpec, AimFigure, LoadConditionSpec, PinSpec } from './rebalance/rebalanceSpec.js';

@@ -1,9 +1,10 @@
 /** `trivar correct`: size, choose and verify power-factor correction for a board. */
-import { correctBoard, InputError, normaliseBoard, parseBoard, readBoardText, type CorrectionReport } from '@trivar/core';
+import { boardHasHarmonicData, correctBoard, correctWithHarmonics, InputError, normaliseBoard, parseBoard, readBoardText, type CorrectionReport, type HarmonicCorrectionReport } from '@trivar/core';
 import type { CliIo } from '../io.js';
 import { writeResult } from '../writeResult.js';
 import { UsageError } from '../exitCodes.js';
 import { renderCorrectionReport } from '../format/correctionReport.js';
+import { renderCorrectionHarmonics } from '../format/correctionHarmonicsReport.js';
 
 export interface CorrectCommandOptions {
   readonly json?: boolean;
@@ -45,7 +46,9 @@ export async function runCorrect(file: string, options: CorrectCommandOptions, i
     throw new UsageError('choose what to size: --arrangement star-bank | delta-bank | balancing-compensator, or correction.arrangement in the board file');
   let report: CorrectionReport;
   try {
-    report = correctBoard(normaliseBoard(spec), study);
+    // A board file with harmonic data (spectra, a harmonics: section) gets the harmonic check
+    // of the bank, with detuned variants beside the plain one.
+    report = boardHasHarmonicData(spec) ? correctWithHarmonics(spec, normaliseBoard(spec), study) : correctBoard(normaliseBoard(spec), study);
   } catch (error) {
     // The study comes from the board file's correction section (and the options laid over it).
     if (error instanceof InputError)
@@ -59,6 +62,9 @@ export async function runCorrect(file: string, options: CorrectCommandOptions, i
       );
     throw error;
   }
-  writeResult(io, report, options.json, renderCorrectionReport);
+  writeResult(io, report, options.json, (r) => {
+    const harmonics = (r as Partial<HarmonicCorrectionReport>).harmonics;
+    return renderCorrectionReport(r) + (harmonics ? renderCorrectionHarmonics(harmonics) : '');
+  });
   return report;
 }

@@ -172,7 +172,8 @@ function boardLines(v: CorrectionVerification): string {
   return out.map((l) => `  ${l}`).join('\n');
 }
 
-function checksBlock(v: CorrectionVerification): string {
+/** `detuned`: the bank's steps sit behind reactors, so √(S_sc/Qc) does not apply (the harmonic check covers it). */
+function checksBlock(v: CorrectionVerification, detuned = false): string {
   const out: string[] = [];
   const t = v.tolerance;
   out.push(
@@ -184,7 +185,9 @@ function checksBlock(v: CorrectionVerification): string {
   );
   out.push(
     v.resonanceOrder === null
-      ? 'parallel resonance with the supply: not estimated (ideal source or no capacitors)'
+      ? detuned
+        ? 'parallel resonance with the supply: a detuned bank keeps it below its tuning order (see the harmonic check)'
+        : 'parallel resonance with the supply: not estimated (ideal source or no capacitors)'
       : `parallel resonance with the supply at about h = √(S_sc/Qc) = ${fixed(v.resonanceOrder, 2)} (× ${v.after.board.frequencyHz} Hz = ${fixed(v.resonanceOrder * v.after.board.frequencyHz, 0)} Hz)`,
   );
   if (v.lightLoad) {
@@ -243,7 +246,7 @@ export function renderCorrectionReport(r: CorrectionReport): string {
   if (r.selection) parts.push(section('Bank as built from units') + selectionBlock(r.selection));
   parts.push(section('Lines, before → after (verified by re-solving the board)') + lineTable(v));
   parts.push(section('Board, before → after') + boardLines(v));
-  parts.push(section('Checks') + checksBlock(v));
+  parts.push(section('Checks') + checksBlock(v, r.selection?.steps.some((s) => s.detuningFactor > 0) ?? false));
   parts.push(section('Warnings') + (r.warnings.length ? r.warnings.map((w) => wrapText(w.message, '  ! ', '    ')).join('\n') : '  none'));
   parts.push(section('Cautions') + r.cautions.map((c) => wrapText(c, '  * ', '    ')).join('\n'));
   return `${parts.join('\n')}\n`;

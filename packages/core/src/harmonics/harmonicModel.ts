@@ -34,8 +34,10 @@ export type LoadBehaviour =
 
 /** A capacitor bank on the board: which added loads are its fixed part and its steps. */
 export interface BankModel {
-  readonly connection: 'delta' | 'star';
+  /** Rated voltage of the capacitor elements, V (the lowest, when parts differ). */
   readonly ratedV: number;
+  /** Nominal network voltage across one element, V (line-to-line for delta, line-to-neutral for star). */
+  readonly elementNominalV: number;
   /** Per step, three-phase rated output, kvar (at rated voltage). */
   readonly stepsKvar: readonly number[];
   readonly fixedKvar: number;
@@ -117,7 +119,7 @@ export function addInstalledBank(board: Board, bank: InstalledBankSpec): { board
   const stepLoads = bank.stepsKvar.map((kvar, k) => part(`bank step ${k + 1}`, kvar));
   return {
     board: { ...board, loads: [...board.loads, ...loads] },
-    model: { connection: bank.connection, ratedV: bank.ratedV, stepsKvar: bank.stepsKvar, fixedKvar, detuning: p, fixedLoad, stepLoads },
+    model: { ratedV: bank.ratedV, elementNominalV: vNominal, stepsKvar: bank.stepsKvar, fixedKvar, detuning: p, fixedLoad, stepLoads },
   };
 }
 
@@ -150,3 +152,19 @@ export function ordersPresent(model: HarmonicModel): number[] {
   for (const load of model.loads) if (load.kind === 'non-linear') for (const o of load.spectrum) orders.add(o.order);
   return [...orders].sort((a, b) => a - b);
 }
+
+/**
+ * What a bank state connects, as text: per branch (from-to), the summed
+ * susceptance of the parts that are on, to 12 digits. Equal keys are the same network.
+ */
+export function stateKey(board: Board, bank: BankModel, steps: readonly boolean[]): string {
+  const on = new Map<string, number>();
+  const parts = [...(bank.fixedLoad === null ? [] : [bank.fixedLoad]), ...bank.stepLoads.filter((_, k) => steps[k])];
+  for (const l of parts)
+    for (const b of board.loads[l]!.branches) {
+      const where = `${b.from}>${b.to.startsWith('star:') ? 'star' : b.to}`;
+      on.set(where, (on.get(where) ?? 0) - b.sNominal.im / (b.vNominal * b.vNominal));
+    }
+  return [...on].sort(([a], [b]) => a.localeCompare(b)).map(([k, v]) => `${k}:${v.toPrecision(12)}`).join(' ');
+}
+

@@ -105,6 +105,10 @@ export const harmonicsSectionSchema = z
         step: z.number().min(0.005).max(1).optional().describe('order step of the scan; default 0.05'),
       })
       .optional(),
+    detuning: z
+      .union([z.enum(['auto', 'none']), z.literal([5.67, 7, 14])])
+      .optional()
+      .describe('trivar correct: detuned variants compared with the plain bank — auto (5.67, 7 and 14 %), none, or one factor in %; default auto'),
     capacitorStandard: z.enum(['ieee-18', 'iec-60831-1']).optional().describe('limits the capacitor duty is judged against; default IEC 60831-1 at 50 Hz, IEEE 18 at 60 Hz'),
   })
   .describe('a harmonic study for `trivar harmonics`');

@@ -26,7 +26,7 @@ import {
   type PassiveNetworkPlan,
 } from '../network/terminalImpedance.js';
 import { HARMONICS_DEFAULTS } from './harmonicsDefaults.js';
-import type { BankModel, HarmonicModel } from './harmonicModel.js';
+import { stateKey, type BankModel, type HarmonicModel } from './harmonicModel.js';
 import { branchAdmittanceAtOrder, impedanceAtOrder } from './networkAtOrder.js';
 import type { ResonanceScan, ScanCombination, ScanPeak } from './harmonicsResult.js';
 
@@ -93,11 +93,12 @@ export function createScanEvaluator(fundamental: NetworkSolution, model: Harmoni
   const pairZ = new Float64Array(2);
   // Per bank part: its branches' ends and admittance at the prepared order.
   const partStamps = new Map<number, { p: number; q: number; y: ComplexValue }[]>();
-  // A part's own floating star point: tied to nothing while the part is off, so it gets a
-  // unit diagonal then (a decoupled node that changes no other impedance).
-  const privateNodes = new Map<number, number[]>(
-    [...bankParts].map((l) => [l, [...new Set(board.loads[l]!.branches.flatMap((b) => [b.from, b.to]).filter((t) => t.startsWith('star:')))].map((t) => plan.terminalIndex.get(t) ?? -1).filter((n) => n >= 0)]),
-  );
+  // Floating star points of the bank: tied to nothing while every part on them is off, so they
+  // get a unit diagonal then (a decoupled node that changes no other impedance).
+  const starNodesOf = (l: number) =>
+    [...new Set(board.loads[l]!.branches.flatMap((b) => [b.from, b.to]).filter((t) => t.startsWith('star:')))].map((t) => plan.terminalIndex.get(t) ?? -1).filter((n) => n >= 0);
+  const bankStarNodes = [...new Set([...bankParts].flatMap(starNodesOf))];
+  const partsOnStar = new Map<number, number[]>(bankStarNodes.map((n) => [n, [...bankParts].filter((l) => starNodesOf(l).includes(n))]));
 
   // The non-bank branches as flat arrays, so that each order stamps them without allocating:
   // kind 0 = parallel G + jB, 1 = series R + jX, 2 = detuned step (a = B_C, b = p).
@@ -179,12 +180,15 @@ export function createScanEvaluator(fundamental: NetworkSolution, model: Harmoni
     },
     impedances(steps, out, offset) {
       copyNodalMatrix(base, work);
+      const isOn = (l: number) => {
+        const step = stepOfPart.get(l);
+        return step === undefined || steps[step] === true;
+      };
       for (let k = 0; k < parts.length; k++) {
         const l = parts[k]!;
-        const step = stepOfPart.get(l);
-        if (step === undefined || steps[step] === true) for (const s of partStamps.get(l)!) stampAdmittance(work, s.p, s.q, s.y.re, s.y.im);
-        else for (const n of privateNodes.get(l)!) stampAdmittance(work, n, -1, 1, 0);
+        if (isOn(l)) for (const s of partStamps.get(l)!) stampAdmittance(work, s.p, s.q, s.y.re, s.y.im);
       }
+      for (const n of bankStarNodes) if (!partsOnStar.get(n)!.some(isOn)) stampAdmittance(work, n, -1, 1, 0);
       if (plan.size > 0) invertNodalMatrix(work, inverseWork);
       for (let k = 0; k < ends.length; k++) {
         if (plan.size === 0) pairZ.fill(0);
@@ -302,15 +306,31 @@ export function scanResonance(fundamental: NetworkSolution, model: HarmonicModel
   const bank = model.bank;
   const combos = stepCombinations(bank ? bank.stepLoads.length : 0);
   const nPairs = evaluator.pairs.length;
+  // Combinations that switch electrically identical parts are one network: evaluate it once.
+  const keys = combos.map((steps) => (bank ? stateKey(board, bank, steps) : ''));
+  const firstOf = keys.map((k) => keys.indexOf(k));
+  const distinct = combos.flatMap((_, c) => (firstOf[c] === c ? [c] : []));
   const values = combos.map(() => new Float64Array(grid.length * nPairs));
   grid.forEach((h0, i) => {
     evaluator.prepare(safeOrder(h0, model));
-    combos.forEach((steps, c) => evaluator.impedances(steps, values[c]!, i * nPairs));
+    for (const c of distinct) evaluator.impedances(combos[c]!, values[c]!, i * nPairs);
+  });
+  combos.forEach((_, c) => {
+    if (firstOf[c] !== c) values[c] = values[firstOf[c]!]!;
   });
   const ssc = shortCircuitVA(board);
   const band = HARMONICS_DEFAULTS.resonanceBand;
   const out = new Float64Array(nPairs);
+  const shared = new Map<number, Pick<ScanCombination, 'impedanceOhm' | 'peaks'>>();
   const combinations = combos.map((steps, c): ScanCombination => {
+    const kvar = bank ? bankKvarOn(board, bank, steps) : 0;
+    const label = combinationLabel(bank, steps);
+    const formulaOrder = ssc !== null && kvar > 0 && (bank?.detuning ?? 0) === 0 ? Math.sqrt(ssc / (kvar * 1000)) : null;
+    const same = shared.get(firstOf[c]!);
+    if (same) {
+      const nearOrders = options.checkedOrders.filter((o) => same.peaks.some((pk) => Math.abs(pk.order - o) <= band * o));
+      return { steps, label, capacitorKvar: kvar, formulaOrder, impedanceOhm: same.impedanceOhm, peaks: same.peaks, nearOrders };
+    }
     const curves = evaluator.pairs.map((_, k) => {
       const curve = new Float64Array(grid.length);
       for (let i = 0; i < grid.length; i++) curve[i] = values[c]![i * nPairs + k]!;
@@ -331,10 +351,9 @@ export function scanResonance(fundamental: NetworkSolution, model: HarmonicModel
         peaks.push({ pair: `${p}-${q}`, order: refined.h, impedanceOhm: refined.value });
       }
     });
-    const kvar = bank ? bankKvarOn(board, bank, steps) : 0;
-    const formulaOrder = ssc !== null && kvar > 0 && (bank?.detuning ?? 0) === 0 ? Math.sqrt(ssc / (kvar * 1000)) : null;
+    shared.set(c, { impedanceOhm: plotted, peaks });
     const nearOrders = options.checkedOrders.filter((o) => peaks.some((pk) => Math.abs(pk.order - o) <= band * o));
-    return { steps, label: combinationLabel(bank, steps), capacitorKvar: kvar, formulaOrder, impedanceOhm: plotted, peaks, nearOrders };
+    return { steps, label, capacitorKvar: kvar, formulaOrder, impedanceOhm: plotted, peaks, nearOrders };
   });
   return {
     orders: grid,

@@ -10,7 +10,7 @@ import type { Board, BoardLoad } from '../board/boardModel.js';
 import { abs, add } from '../complex.js';
 import { InputError, inputIssue } from '../errors.js';
 import { solveNetwork, type NetworkSolution, type SolveOptions } from '../network/solveNetwork.js';
-import { addInstalledBank, ordersPresent, resolveHarmonicModel, type BankModel, type HarmonicModel } from './harmonicModel.js';
+import { addInstalledBank, ordersPresent, resolveHarmonicModel, stateKey, type BankModel, type HarmonicModel } from './harmonicModel.js';
 import { solveAtOrder } from './networkAtOrder.js';
 import { readLines, readLineToLine, readNeutral, type OrderSolution } from './readHarmonics.js';
 import { combinationLabel, scanResonance, stepCombinations } from './scanResonance.js';
@@ -97,14 +97,19 @@ function capacitorDuty(board: Board, model: HarmonicModel, solve?: SolveOptions)
   if (!bank) return null;
   const { limits, source } = DUTY_LIMITS[model.capacitorStandard];
   const cases: DutyCase[] = [];
+  // States that switch electrically identical parts (equal steps) are one state: solve each once.
+  const seen = new Set<string>();
   for (const steps of stepCombinations(bank.stepLoads.length)) {
+    const key = stateKey(board, bank, steps);
+    if (seen.has(key)) continue;
+    seen.add(key);
     const orders = solveHarmonicOrders(withSteps(board, bank, steps), model, solve);
     const c = dutyCase(orders, bank, steps, combinationLabel(bank, steps), limits);
     if (c) cases.push(c);
   }
   if (cases.length === 0) return null;
   const worst = cases.reduce((w, c) => (dutyRatio(c.figures, limits) > dutyRatio(w.figures, limits) ? c : w));
-  const vNetwork = bank.connection === 'star' ? board.nominalLineToNeutralV : (board.nominalLineToLineV ?? board.nominalLineToNeutralV);
+  const vNetwork = bank.elementNominalV;
   return {
     standard: model.capacitorStandard,
     limits,

@@ -1,0 +1,299 @@
+/**
+ * Harmonics inside the correction study: the plain bank `correctBoard` chose is
+ * checked on the board's harmonics (resonance scan of every step combination,
+ * capacitor duty in every state); beside it, detuned variants (p = 5.67, 7,
+ * 14 %) are sized and checked the same way, and one is chosen.
+ *
+ * A detuned variant re-runs the whole correction study (sizing, units, every
+ * verification) with each catalogue unit replaced by its fundamental
+ * equivalent: a unit of Q_r at U_r behind a reactor of p behaves at the
+ * fundamental as a plain capacitor of susceptance B_r/(1 − p), and its
+ * capacitor sees U/(1 − p). That is exactly a plain unit rated
+ * (Q_r·(1 − p), U_r·(1 − p)): same susceptance B_r/(1 − p), and the study's
+ * voltage rule "U_r·(1 − p) ≥ U·(1 + margin)" is the rating the detuned
+ * capacitor needs, U_r ≥ U·(1 + margin)/(1 − p) [METHODS §5]. The chosen build
+ * is then written back in real units (rating, nameplate, capacitance) with
+ * its detuning factor, and its harmonics are solved with the series L–C steps.
+ */
+import type { Board, BoardLoad, Terminal } from '../board/boardModel.js';
+import type { BoardSpec } from '../board/boardSchema.js';
+import { correctBoard } from '../correction/correctBoard.js';
+import { parseCorrectionSpec } from '../correction/validateCorrectionSpec.js';
+import { defaultPractice } from '../correction/selectBankUnits.js';
+import { TYPICAL_CATALOGUES, catalogueUnitOf } from '../correction/unitCatalogues.js';
+import type { BankStep, CorrectionReport, CorrectionWarning } from '../correction/correctionResult.js';
+import { ARRANGEMENT_NAMES, CORRECTION_CAUTIONS, reportSummary } from '../correction/correctionWording.js';
+import type { CapacitorUnitSpec } from '../correction/correctionSpec.js';
+import { resolveHarmonicModel, type BankModel } from './harmonicModel.js';
+import { analyseHarmonics } from './studyHarmonics.js';
+import { DETUNING_FACTORS_PERCENT, capacitorVoltage, tuningOrder } from './detuning.js';
+import { dutyRatio } from './capacitorDuty.js';
+import type { HarmonicsReport } from './harmonicsResult.js';
+
+export interface CorrectionVariant {
+  /** `plain`, or `detuned 7 %`… */
+  readonly name: string;
+  /** Detuning factor p, % (0 for plain). */
+  readonly detuningPercent: number;
+  /** 1/√p; null for plain. */
+  readonly tuningOrder: number | null;
+  /** Fundamental voltage across the capacitors at nominal network voltage, V. */
+  readonly capacitorVoltageV: number;
+  /**
+   * Reactor per branch of each distinct step size, mH (X_L = p·X_C of the step's
+   * capacitance per branch at the board frequency); empty for plain.
+   */
+  readonly reactorsMilliHenry: readonly { readonly capacitancePerBranchUF: number; readonly inductanceMH: number }[];
+  /** Rated voltage of the units chosen, V; null when nothing was built. */
+  readonly unitRatedV: number | null;
+  readonly nameplateKvar: number;
+  readonly deliveredKvar: number;
+  readonly correctionStatus: CorrectionReport['status'];
+  /** Lowest resonance peak over every step combination; null when none. */
+  readonly lowestResonanceOrder: number | null;
+  /** Orders present on the board that some step combination resonates within ±10 % of. */
+  readonly resonantOrders: readonly number[];
+  /** Worst capacitor duty over every state, as a fraction of its limit (≤ 1 is within). */
+  readonly worstDutyRatio: number | null;
+  readonly dutyOk: boolean;
+  /** Meets the target, no resonance near an order present, duty within limits. */
+  readonly passes: boolean;
+  /** Why it does not pass, in words. */
+  readonly reasons: readonly string[];
+}
+
+/** A variant with the reports it came from (kept out of the result: the chosen one is the result). */
+interface VariantRun {
+  readonly summary: CorrectionVariant;
+  readonly report: CorrectionReport;
+  readonly harmonics: HarmonicsReport | null;
+}
+
+export interface CorrectionHarmonics {
+  /** The choice in words. */
+  readonly summary: string;
+  /** Name of the chosen variant; null when none passes. */
+  readonly chosen: string | null;
+  readonly variants: readonly CorrectionVariant[];
+  /** The harmonic study of the bank in the report (scan curves included, for plotting); null when nothing is built. */
+  readonly check: HarmonicsReport | null;
+  readonly basis: string;
+}
+
+/** A correction report with the harmonic comparison of plain and detuned variants. */
+export type HarmonicCorrectionReport = CorrectionReport & { readonly harmonics: CorrectionHarmonics };
+
+/** True when the board file gives the harmonic study something to work on. */
+export function boardHasHarmonicData(spec: BoardSpec): boolean {
+  return spec.harmonics !== undefined || spec.loads.some((l) => l.spectrum !== undefined && l.spectrum !== 'linear');
+}
+
+/** The catalogue a study uses, as plain unit specs (user's, or the practice's typical one at the board frequency). */
+function catalogueOf(board: Board, study: ReturnType<typeof parseCorrectionSpec>): CapacitorUnitSpec[] {
+  if (study.catalogue) return study.catalogue.map((u, i) => ({ ...catalogueUnitOf(u, i) }));
+  const practice = study.practice ?? defaultPractice(board.frequencyHz);
+  return TYPICAL_CATALOGUES[practice].units.map((u) => ({ name: u.name, kind: u.kind, ratedKvar: u.ratedKvar, ratedV: u.ratedV, ratedHz: u.ratedHz }));
+}
+
+/** Each unit as its fundamental equivalent behind a reactor of p (see the module comment). */
+const equivalentUnit = (u: CapacitorUnitSpec, p: number): CapacitorUnitSpec => ({
+  ...u,
+  name: `${u.name ?? 'unit'} behind a ${(100 * p).toFixed(2).replace(/\.?0+$/, '')} % reactor`,
+  ratedKvar: u.ratedKvar * (1 - p),
+  ratedV: u.ratedV * (1 - p),
+});
+
+/** The caution a correction report gives when it has not looked at harmonics; replaced once it has. */
+const HARMONICS_NOT_CHECKED = CORRECTION_CAUTIONS.find((c) => c.includes('does not check harmonics'));
+const HARMONICS_CHECKED =
+  'Adding capacitance moves the supply resonance down in frequency. The harmonic check below covers the spectra entered in the board file; measure the real spectrum (true-rms, per order) before installing.';
+
+/**
+ * Writes a variant's steps back in real units: rating, nameplate and
+ * capacitance of the capacitors behind the reactors, the catalogue they came
+ * from, the summary; the √(S_sc/Q_c) estimate does not apply to a detuned bank
+ * (its resonances are in the harmonic check), so it and its warning go.
+ */
+function asDetuned(report: CorrectionReport, p: number, percent: number, plainSelection: CorrectionReport['selection']): CorrectionReport {
+  const selection = report.selection;
+  if (!selection) return report;
+  const typical = plainSelection ? plainSelection.catalogue === 'typical' : selection.catalogue === 'typical';
+  const realUnit = <T extends { ratedKvar: number; ratedV: number; elementCapacitanceUF: number; source: string; catalogueIndex: number | null }>(u: T): T => ({
+    ...u,
+    source: typical ? 'typical' : 'catalogue',
+    catalogueIndex: typical ? null : u.catalogueIndex,
+    ratedKvar: u.ratedKvar / (1 - p),
+    ratedV: u.ratedV / (1 - p),
+    elementCapacitanceUF: u.elementCapacitanceUF * (1 - p),
+  });
+  const real = (uf: number) => uf * (1 - p);
+  const steps = selection.steps.map((s): BankStep => ({
+    ...s,
+    unit: realUnit(s.unit),
+    nameplateKvar: s.nameplateKvar / (1 - p),
+    capacitancePerBranchUF: s.capacitancePerBranchUF * (1 - p),
+    detuningFactor: p,
+  }));
+  const nameplate = selection.nameplateKvar / (1 - p);
+  const what = `${ARRANGEMENT_NAMES[report.arrangement]} with ${percent} % detuning reactors`;
+  const summary =
+    report.status === 'already-meets-target' || report.status === 'no-suitable-units'
+      ? reportSummary[report.status](what)
+      : reportSummary[report.status](what, selection.deliveredKvar, nameplate);
+  const withoutEstimate = (ws: readonly CorrectionWarning[]) => ws.filter((w) => w.code !== 'resonance');
+  return {
+    ...report,
+    summary,
+    warnings: withoutEstimate(report.warnings),
+    verification: { ...report.verification, resonanceOrder: null, warnings: withoutEstimate(report.verification.warnings) },
+    selection: {
+      ...selection,
+      ...(plainSelection ? { catalogue: plainSelection.catalogue, catalogueTitle: plainSelection.catalogueTitle, catalogueNote: plainSelection.catalogueNote } : {}),
+      steps,
+      nameplateKvar: nameplate,
+      selections: selection.selections.map((b) => ({
+        ...b,
+        nameplateKvar: b.nameplateKvar / (1 - p),
+        requiredRatedV: b.requiredRatedV / (1 - p),
+        requiredCapacitanceUF: real(b.requiredCapacitanceUF),
+        minimumCapacitanceUF: real(b.minimumCapacitanceUF),
+        maximumCapacitanceUF: b.maximumCapacitanceUF === null ? null : real(b.maximumCapacitanceUF),
+        fixedCapacitanceUF: real(b.fixedCapacitanceUF),
+        designCapacitanceUF: real(b.designCapacitanceUF),
+      })),
+    },
+  };
+}
+
+/**
+ * The bank of a correction report as switchable parts on the plain board: the
+ * fixed part and one load per controller output, each branch at its effective
+ * fundamental susceptance. Star branches of a floating bank share one star point.
+ */
+export function bankOfReport(board: Board, report: CorrectionReport): { board: Board; model: BankModel } | null {
+  const steps = report.selection?.steps ?? [];
+  if (steps.length === 0) return null;
+  const omega = 2 * Math.PI * board.frequencyHz;
+  const p = steps[0]!.detuningFactor;
+  const star: Terminal = `star:${board.loads.length}`;
+  const outputs = [...new Set(steps.map((s) => s.output))];
+  const loads: BoardLoad[] = outputs.map((output) => {
+    const parts = steps.filter((s) => s.output === output);
+    const branches = parts.flatMap((s) =>
+      s.branches.map((name) => {
+        const [from, to] = name.split('-') as [Terminal, string];
+        const vNominal = to === 'N' || to === 'star' ? board.nominalLineToNeutralV : (board.nominalLineToLineV ?? board.nominalLineToNeutralV);
+        const bEffective = (omega * s.capacitancePerBranchUF * 1e-6) / (1 - p);
+        return { from, to: (to === 'star' ? star : to) as Terminal, sNominal: { re: 0, im: -bEffective * vNominal * vNominal }, vNominal, zip: { z: 1, i: 0, p: 0 } };
+      }),
+    );
+    return { name: output === null ? 'bank fixed part' : `bank output ${output}`, connection: 'ABC-delta', model: 'constant-impedance', origin: 'added', branches };
+  });
+  const first = board.loads.length;
+  const fixedIndex = outputs.indexOf(null);
+  const elementV = (s: BankStep) => (s.unit.kind === 'three-phase' && s.branches.some((b) => b.endsWith('-N') || b.endsWith('-star')) ? s.unit.ratedV / Math.sqrt(3) : s.unit.ratedV);
+  const starBranches = steps.some((s) => s.branches.some((b) => b.endsWith('-N') || b.endsWith('-star')));
+  const kvarOf = (output: number | null) => steps.filter((s) => s.output === output).reduce((t, s) => t + s.kvarAtNominalV, 0);
+  return {
+    board: { ...board, loads: [...board.loads, ...loads] },
+    model: {
+      ratedV: Math.min(...steps.map(elementV)),
+      elementNominalV: starBranches ? board.nominalLineToNeutralV : (board.nominalLineToLineV ?? board.nominalLineToNeutralV),
+      stepsKvar: outputs.filter((o) => o !== null).map(kvarOf),
+      fixedKvar: fixedIndex >= 0 ? kvarOf(null) : 0,
+      detuning: p,
+      fixedLoad: fixedIndex >= 0 ? first + fixedIndex : null,
+      stepLoads: outputs.flatMap((o, k) => (o === null ? [] : [first + k])),
+    },
+  };
+}
+
+function variantOf(spec: BoardSpec, board: Board, report: CorrectionReport, name: string, percent: number): VariantRun {
+  const p = percent / 100;
+  const bank = bankOfReport(board, report);
+  const harmonics = bank ? analyseHarmonics(bank.board, resolveHarmonicModel(spec, bank.board, bank.model)) : null;
+  const peaks = harmonics?.scan.combinations.flatMap((c) => c.peaks.map((pk) => pk.order)) ?? [];
+  const resonantOrders = [...new Set(harmonics?.scan.combinations.flatMap((c) => c.nearOrders) ?? [])].sort((a, b) => a - b);
+  const duty = harmonics?.capacitorDuty ?? null;
+  const worstDutyRatio = duty ? dutyRatio(duty.worst.figures, duty.limits) : null;
+  const met = report.status === 'meets-target' || report.status === 'meets-target-at-nominal-capacitance' || report.status === 'already-meets-target';
+  const reasons = [
+    ...(met ? [] : [`the correction study ends "${report.status}"`]),
+    ...(resonantOrders.length ? [`a step combination resonates with the supply within ±10 % of order ${resonantOrders.join(', ')}`] : []),
+    ...(duty && !duty.ok ? ['the capacitors exceed their duty limits in some state'] : []),
+  ];
+  const elementV = bank?.model.elementNominalV ?? board.nominalLineToLineV ?? board.nominalLineToNeutralV;
+  const summary: CorrectionVariant = {
+    name,
+    detuningPercent: percent,
+    tuningOrder: p > 0 ? tuningOrder(p) : null,
+    capacitorVoltageV: capacitorVoltage(elementV, p),
+    reactorsMilliHenry: p > 0 ? reactorsOf(report, board.frequencyHz, p) : [],
+    unitRatedV: report.selection?.steps[0]?.unit.ratedV ?? null,
+    nameplateKvar: report.selection?.nameplateKvar ?? 0,
+    deliveredKvar: report.selection?.deliveredKvar ?? 0,
+    correctionStatus: report.status,
+    lowestResonanceOrder: peaks.length ? Math.min(...peaks) : null,
+    resonantOrders,
+    worstDutyRatio,
+    dutyOk: duty?.ok ?? true,
+    passes: reasons.length === 0,
+    reasons,
+  };
+  return { summary, report, harmonics };
+}
+
+function reactorsOf(report: CorrectionReport, frequencyHz: number, p: number): CorrectionVariant['reactorsMilliHenry'] {
+  const omega = 2 * Math.PI * frequencyHz;
+  const sizes = [...new Set((report.selection?.steps ?? []).map((s) => s.capacitancePerBranchUF))].sort((a, b) => a - b);
+  // X_C = 1/(ωC), X_L = p·X_C, L = X_L/ω.
+  return sizes.map((uf) => ({ capacitancePerBranchUF: uf, inductanceMH: (1e3 * p) / (omega * omega * uf * 1e-6) }));
+}
+
+/** A third harmonic worth a 14 % reactor: above this share of the fundamental on some line (common practice, no source). */
+const SIGNIFICANT_THIRD = 0.1;
+
+/**
+ * Runs the correction study with its harmonic check: the plain bank, and
+ * detuned variants at 5.67, 7 and 14 % (or the one `harmonics.detuning`
+ * names), each sized for the target with its effective fundamental output and
+ * checked again; the chosen variant's report is returned with the comparison.
+ * @param spec the validated board file (spectra, background, harmonics section)
+ * @param board `normaliseBoard(spec)`
+ * @param study the correction study (as for `correctBoard`)
+ */
+export function correctWithHarmonics(spec: BoardSpec, board: Board, study: unknown): HarmonicCorrectionReport {
+  const plain = variantOf(spec, board, correctBoard(board, study), 'plain', 0);
+  const parsed = parseCorrectionSpec(study, board);
+  const setting = spec.harmonics?.detuning ?? 'auto';
+  const factors: number[] = setting === 'none' ? [] : setting === 'auto' ? [...DETUNING_FACTORS_PERCENT] : [setting];
+  const catalogue = catalogueOf(board, parsed);
+  const detuned = factors.map((percent) => {
+    const p = percent / 100;
+    const variantStudy = { ...(study as Record<string, unknown>), catalogue: catalogue.map((u) => equivalentUnit(u, p)) };
+    return variantOf(spec, board, asDetuned(correctBoard(board, variantStudy), p, percent, plain.report.selection), `detuned ${percent} %`, percent);
+  });
+  const runs = [plain, ...detuned];
+  const third = plain.harmonics?.lines.some((l) => (l.current.orders.find((o) => o.order === 3)?.percentOfFundamental ?? 0) > 100 * SIGNIFICANT_THIRD) ?? false;
+  // Practice: 14 % where the 3rd matters, else 7 % (then 5.67 %), common practice [METHODS §5].
+  const order = third ? [...detuned].sort((a, b) => b.summary.detuningPercent - a.summary.detuningPercent) : [...detuned].sort((a, b) => Math.abs(a.summary.detuningPercent - 7) - Math.abs(b.summary.detuningPercent - 7));
+  const chosen = plain.summary.passes ? plain : (order.find((v) => v.summary.passes) ?? null);
+  const shown = chosen ?? plain;
+  const why = (v: VariantRun) => v.summary.reasons.join('; ');
+  const summary = chosen
+    ? chosen === plain
+      ? 'the plain bank passes the harmonic check: no detuning needed'
+      : `the plain bank fails the harmonic check (${why(plain)}); chosen: ${chosen.summary.name} (tuned to h = ${chosen.summary.tuningOrder!.toFixed(2)}, ${chosen.summary.unitRatedV?.toFixed(0)} V capacitors)${third ? '; 14 % is tried first because the third harmonic is significant' : ''}`
+    : `no variant passes the harmonic check (${runs.map((v) => `${v.summary.name}: ${why(v)}`).join(' | ')}): a tuned filter or a specialist harmonic study is needed; the plain bank is shown`;
+  return {
+    ...shown.report,
+    cautions: shown.report.cautions.map((c) => (c === HARMONICS_NOT_CHECKED ? HARMONICS_CHECKED : c)),
+    harmonics: {
+      summary,
+      chosen: chosen?.summary.name ?? null,
+      variants: runs.map((v) => v.summary),
+      check: shown.harmonics,
+      basis: 'each variant is sized for the same target with its effective fundamental output Q_r(U/U_r)²/(1 − p) and units rated for U/(1 − p) with the study’s voltage margin; every correction check is re-run, then the resonance scan and the capacitor duty of every step combination',
+    },
+  };
+}
