@@ -113,6 +113,7 @@ export { rewriteBoardText } from './rebalance/rewriteBoardText.js';
 // Drawings and reports (SVG/HTML/Markdown text; the CLI writes the files)
 export type { PhasorDiagramOptions } from './render/renderPhasorDiagram.js';
 export { renderPhasorDiagram } from './render/renderPhasorDiagram.js';
+export type { SequenceDiagramOptions } from './render/renderSequenceDiagram.js';
 export { renderSequenceDiagram } from './render/renderSequenceDiagram.js';
 export type { CurrentTriangleOptions, LineCurrentParts } from './render/renderCurrentTriangles.js';
 export { renderCurrentTriangles, lineCurrentParts } from './render/renderCurrentTriangles.js';
