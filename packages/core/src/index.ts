@@ -130,5 +130,5 @@ export type { HandFiguresSpec, HandCapacitorSpec, HandBranch } from './handCheck
 export { handFiguresSchema } from './handCheck/handFiguresSpec.js';
 export { parseHandFigures } from './handCheck/validateHandFigures.js';
 export type * from './handCheck/handCheckResult.js';
-export { checkHandFigures } from './handCheck/checkHandFigures.js';
+export { checkHandFigures, addHandCapacitors } from './handCheck/checkHandFigures.js';
 export { textbookWorking } from './handCheck/textbookWorking.js';
