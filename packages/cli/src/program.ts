@@ -5,6 +5,7 @@ import { DEFAULT_MAX_INPUT_MB, type CliIo } from './io.js';
 import { runSolve } from './commands/solve.js';
 import { runSchema } from './commands/schema.js';
 import { runCorrect, type CorrectCommandOptions } from './commands/correct.js';
+import { runHarmonics } from './commands/harmonics.js';
 import { runRebalance, type RebalanceCommandOptions } from './commands/rebalance.js';
 import { DIAGRAM_VIEWS, runDiagram, type DiagramCommandOptions } from './commands/diagram.js';
 import { runReport, type ReportCommandOptions } from './commands/report.js';
@@ -40,6 +41,16 @@ Examples:
 Exit codes: as for solve, plus
   5  the study ran but the target cannot be met with the allowed equipment (the report says why
      and shows the best reachable result)`;
+
+const HARMONICS_EXAMPLES = `
+Spectra go on the loads (spectrum: switch-mode | [{ order, percent, angleDeg }]); background distortion,
+an installed bank and the IEEE 519 check go under "harmonics:" in the board file (see trivar schema).
+
+Examples:
+  trivar harmonics examples/mill-street-offices.yaml
+  trivar harmonics examples/mill-street-offices.yaml --json > harmonics.json
+
+Exit codes: as for solve`;
 
 const REBALANCE_EXAMPLES = `
 The study can also live in the board file under "rebalance:" (pins, load conditions, capacities;
@@ -171,6 +182,16 @@ export function createProgram(io: CliIo, outcome: RunOutcome = { exitCode: EXIT.
       const report = await runCorrect(board, opts, io);
       const missed = report.status === 'infeasible' || report.status === 'misses-target-with-available-units' || report.status === 'no-suitable-units';
       if (missed) outcome.exitCode = EXIT.targetNotMet;
+    });
+
+  program
+    .command('harmonics')
+    .description('harmonic study: line and neutral rms with harmonics, THD, resonance scan of every bank state, capacitor duty')
+    .argument('<board>', 'board file (YAML or JSON), or - for standard input')
+    .option('--json', 'print the full report (with the scan data) as JSON instead of the text report')
+    .addHelpText('after', HARMONICS_EXAMPLES)
+    .action(async (board: string, opts: { json?: boolean }) => {
+      await runHarmonics(board, opts, io);
     });
 
   program
