@@ -116,6 +116,7 @@ The figures file (YAML or JSON) lists the capacitors you chose and, if you like,
 
 Examples:
   trivar check examples/riverside-cold-store.yaml examples/hand-figures/riverside-cold-store.yaml
+  trivar check board.yaml my-figures.yaml --diagram triangles.svg
   trivar check board.yaml my-figures.yaml --json`;
 
 function numberIn(min: number, max: number, what: string) {
@@ -241,6 +242,7 @@ export function createProgram(io: CliIo, outcome: RunOutcome = { exitCode: EXIT.
     .argument('<board>', 'board file (YAML or JSON), or - for standard input')
     .argument('<figures>', 'your hand figures (YAML or JSON): capacitors per phase or line pair, expected PF and currents')
     .option('--json', 'print the full result as JSON instead of the report')
+    .option('--diagram <file>', 'also write the current triangle of every line, without and with your capacitors, as SVG')
     .addHelpText('after', CHECK_EXAMPLES)
     .action(async (board: string, figures: string, opts: CheckCommandOptions) => {
       await runCheck(board, figures, opts, io);

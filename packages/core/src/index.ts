@@ -78,6 +78,8 @@ export { validateCorrectionSpec, parseCorrectionSpec } from './correction/valida
 export { CORRECTION_DEFAULTS } from './correction/correctionDefaults.js';
 export type { ResolvedTarget, TargetCheck, LineTargetCheck, BoardTargetDefinition } from './correction/correctionTarget.js';
 export { resolveTarget, checkTarget, boardPowerFactor } from './correction/correctionTarget.js';
+export type { BalanceTarget, BalanceCheck } from './correction/balanceTarget.js';
+export { checkBalance } from './correction/balanceTarget.js';
 export type { EquipmentGroup, EquipmentBranch, EquipmentTerminal, BranchSlot, AddEquipmentOptions } from './correction/equipment.js';
 export { addCorrectionEquipment } from './correction/equipment.js';
 export type { AppliedConditions, CapacitorOutput } from './correction/capacitorOutput.js';
@@ -139,6 +141,7 @@ export { rewriteBoardText } from './rebalance/rewriteBoardText.js';
 // Drawings and reports (SVG/HTML/Markdown text; the CLI writes the files)
 export type { PhasorDiagramOptions } from './render/renderPhasorDiagram.js';
 export { renderPhasorDiagram } from './render/renderPhasorDiagram.js';
+export type { SequenceDiagramOptions } from './render/renderSequenceDiagram.js';
 export { renderSequenceDiagram } from './render/renderSequenceDiagram.js';
 export type { CurrentTriangleOptions, LineCurrentParts } from './render/renderCurrentTriangles.js';
 export { renderCurrentTriangles, lineCurrentParts } from './render/renderCurrentTriangles.js';
@@ -155,5 +158,5 @@ export type { HandFiguresSpec, HandCapacitorSpec, HandBranch } from './handCheck
 export { handFiguresSchema } from './handCheck/handFiguresSpec.js';
 export { parseHandFigures } from './handCheck/validateHandFigures.js';
 export type * from './handCheck/handCheckResult.js';
-export { checkHandFigures } from './handCheck/checkHandFigures.js';
+export { checkHandFigures, addHandCapacitors } from './handCheck/checkHandFigures.js';
 export { textbookWorking } from './handCheck/textbookWorking.js';
