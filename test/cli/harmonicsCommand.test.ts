@@ -55,3 +55,11 @@ describe('trivar correct with harmonic data (built binary)', () => {
     expect(report.selection.steps.every((s: { detuningFactor: number }) => s.detuningFactor === 0.07)).toBe(true);
   });
 });
+
+describe('trivar harmonics --help', () => {
+  it('help text', () => {
+    const r = runTrivar(['harmonics', '--help']);
+    expect(r.code).toBe(0);
+    expect(r.stdout).toMatchSnapshot();
+  });
+});
