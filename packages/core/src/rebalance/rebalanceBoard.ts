@@ -49,11 +49,11 @@ export interface RebalanceOptions {
    * @defaultValue 'auto'
    */
   readonly method?: 'auto' | 'exact' | 'local-search';
-  /** @defaultValue 22 (movable circuits; proven within about a second on typical boards, see README) */
+  /** @defaultValue 18 (movable circuits: proven within half a second of CPU on random boards, see README) */
   readonly exactUpTo?: number;
-  /** Most branch-and-bound nodes before it stops and reports the best found. @defaultValue 4 000 000 */
+  /** Most branch-and-bound nodes before it stops and reports the best found. @defaultValue 2 000 000 (a few seconds) */
   readonly nodeBudget?: number;
-  /** Random kicks of the local search after its first local optimum. @defaultValue 300 */
+  /** Random kicks of the local search after its first local optimum. @defaultValue 100 */
   readonly kicks?: number;
   /** Seed of the local search's generator (answers are repeatable). @defaultValue 1 */
   readonly seed?: number;
@@ -80,9 +80,9 @@ function resolveOptions(options: RebalanceOptions): ResolvedOptions {
   parseOptions(optionsSchema, options, 'rebalanceBoard options');
   return {
     method: options.method ?? 'auto',
-    exactUpTo: options.exactUpTo ?? 22,
-    nodeBudget: options.nodeBudget ?? 4_000_000,
-    kicks: options.kicks ?? 300,
+    exactUpTo: options.exactUpTo ?? 18,
+    nodeBudget: options.nodeBudget ?? 2_000_000,
+    kicks: options.kicks ?? 100,
     seed: options.seed ?? 1,
     moveTable: options.moveTable ?? true,
     objective: options.objective,
@@ -262,6 +262,12 @@ export function rebalanceBoard(board: Board, study: unknown, options: RebalanceO
   if (chosen.exactRan && !chosen.proven && chosen.nodes > o.nodeBudget) notes.push(REBALANCE_NOTES.budgetReached(o.nodeBudget));
   if (chosen.lowerBound === null && chosen.best.excess <= tie && n > 0) notes.push(REBALANCE_NOTES.noBound);
   if (chosen.best.excess > tie) notes.push(REBALANCE_NOTES.capacityNotMet);
+  conditions.forEach(({ solved: { before: f } }) =>
+    f.lineA.forEach((amps, k) => {
+      const cap = resolved.lineCapacityA[k]!;
+      if (amps > cap + tie) notes.push(REBALANCE_NOTES.overCapacityNow(board.phases[k]!, amps, cap, f.name));
+    }),
+  );
   if (moves.length > 0 && solvedScore.after > solvedScore.before + tieTolerance(solvedScore.before))
     notes.push(REBALANCE_NOTES.solvedNotBetter(solvedScore.before, solvedScore.after));
   const differs = Math.max(
