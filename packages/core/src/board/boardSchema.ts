@@ -7,6 +7,7 @@
  */
 import * as z from 'zod';
 import { correctionSpecSchema } from '../correction/correctionSpec.js';
+import { profileSpecSchema } from '../profile/profileSpec.js';
 
 const positive = z.number().positive();
 const nonNegative = z.number().nonnegative();
@@ -111,6 +112,7 @@ export const boardSchema = z
       .partial()
       .optional()
       .describe('a power-factor correction study for `trivar correct` (command-line options override it)'),
+    profile: profileSpecSchema.optional(),
   })
   .describe('a trivar board file');
 

@@ -41,8 +41,13 @@ export interface BatchNetwork {
 
 const keyOf = (from: Terminal, to: Terminal, v: number) => `${from}|${to}|${v}`;
 
+/** The edge between two terminals at a nominal voltage, or -1. */
+export function edgeIndex(net: BatchNetwork, from: Terminal, to: Terminal, vNominal: number): number {
+  return net.edges.findIndex((e) => e.from === from && e.to === to && e.vNominal === vNominal);
+}
+
 /** Groups the board's branches into edges and folds the drivers' coefficients onto them. */
-export function compileBatchNetwork(board: Board, drivers: readonly DriverSpec[]): BatchNetwork {
+export function compileBatchNetwork(board: Board, drivers: readonly DriverSpec[], extraEdges: readonly BatchEdge[] = []): BatchNetwork {
   const edges: BatchEdge[] = [];
   const edgeOf = new Map<string, number>();
   const branchEdge = board.loads.map((load) =>
@@ -56,6 +61,11 @@ export function compileBatchNetwork(board: Board, drivers: readonly DriverSpec[]
       return e;
     }),
   );
+  // Edges that equipment added later (capacitor steps) will need, even where no load sits.
+  for (const x of extraEdges) {
+    const key = keyOf(x.from, x.to, x.vNominal);
+    if (!edgeOf.has(key)) edgeOf.set(key, edges.push(x) - 1);
+  }
   const E = edges.length;
   const coefficients = new Float64Array(drivers.length * E * 6);
   drivers.forEach((driver, d) => {
