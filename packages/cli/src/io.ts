@@ -9,6 +9,8 @@ export interface CliIo {
   readonly readSource: (path: string) => Promise<string>;
   /** True when stdout is a terminal (colour allowed). */
   readonly isTty: boolean;
+  /** True when stderr is a terminal: long runs may draw a progress bar there. */
+  readonly progressTty?: boolean;
 }
 
 async function readStdin(): Promise<string> {
@@ -31,4 +33,5 @@ export const processIo: CliIo = {
     }
   },
   isTty: Boolean(process.stdout.isTTY),
+  progressTty: Boolean(process.stderr.isTTY),
 };
