@@ -7,7 +7,9 @@
  */
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { normaliseBoard, parseBoard, solveNetwork, terminalVoltage, type Board } from '@trivar/core';
+import { analyseSolution, normaliseBoard, parseBoard, solveNetwork, terminalVoltage, type Board } from '@trivar/core';
+import { allocateFigures, recordInterval } from '../../packages/core/src/profile/solveBatch.js';
+import { expectClose } from '../support/tolerance.js';
 import { compileBatchNetwork, edgePowersAt, type DriverSpec } from '../../packages/core/src/profile/batchNetwork.js';
 import { closedFormBlocker, createClosedFormKernel } from '../../packages/core/src/profile/closedFormKernel.js';
 import { createNodalKernel } from '../../packages/core/src/profile/nodalKernel.js';
@@ -55,6 +57,58 @@ function compareInterval(kernel: BatchKernel, board: Board, scales: readonly num
     const vn = terminalVoltage(general, 'N');
     if (vn) expectComplexClose({ re: s.reference[0]!, im: s.reference[1]! }, vn, vTol, `${kernel.path} neutral bar`);
   }
+  // Laws on the batch state itself: KCL at the neutral (Σ I_line = I_N on a board with a
+  // conductor neutral) and power balance (source = loads at the board + conductor losses).
+  let sr = 0;
+  let si = 0;
+  let loadP = 0;
+  let loadQ = 0;
+  let lossP = 0;
+  let lossQ = 0;
+  const z = { re: board.sourceImpedance.re + board.lineImpedance.re, im: board.sourceImpedance.im + board.lineImpedance.im };
+  board.phases.forEach((_, k) => {
+    const ir = s.lineRe[k]!;
+    const ii = s.lineIm[k]!;
+    sr += ir;
+    si += ii;
+    const vr = s.busRe[k]! - s.reference[0]!;
+    const vi = s.busIm[k]! - s.reference[1]!;
+    const i2 = ir * ir + ii * ii;
+    loadP += vr * ir + vi * ii;
+    loadQ += vi * ir - vr * ii;
+    lossP += i2 * z.re;
+    lossQ += i2 * z.im;
+  });
+  if (board.hasNeutral && !board.neutralOpen) {
+    expectComplexClose({ re: sr, im: si }, { re: s.neutral[0]!, im: s.neutral[1]! }, iTol, `${kernel.path} KCL at the neutral`);
+    const n2 = s.neutral[0]! ** 2 + s.neutral[1]! ** 2;
+    lossP += n2 * board.neutralImpedance.re;
+    lossQ += n2 * board.neutralImpedance.im;
+  }
+  let srcP = 0;
+  let srcQ = 0;
+  board.phases.forEach((_, k) => {
+    const e = board.emf[k]!;
+    srcP += e.re * s.lineRe[k]! + e.im * s.lineIm[k]!;
+    srcQ += e.im * s.lineRe[k]! - e.re * s.lineIm[k]!;
+  });
+  const sScale = vMax * iMax;
+  if (board.hasNeutral) {
+    expectClose(srcP, loadP + lossP, { rel: REL, abs: REL * sScale }, `${kernel.path} active power balance`);
+    expectClose(srcQ, loadQ + lossQ, { rel: REL, abs: REL * sScale }, `${kernel.path} reactive power balance`);
+  }
+  // The per-interval figures the summaries read are the general analysis's figures.
+  const figures = allocateFigures(1, board.phases.length);
+  recordInterval(s, board.sequence, figures, 0);
+  const result = analyseSolution(general);
+  const sMax = Math.max(1, ...result.phases.map((p) => p.kVA * 1000));
+  result.phases.forEach((p, k) => {
+    expectClose(figures.phaseV[k]![0]!, p.voltage.magnitude, vTol, `${kernel.path} phase ${p.phase} voltage`);
+    expectClose(figures.lineA[k]![0]!, p.current.magnitude, iTol, `${kernel.path} line ${p.phase} current`);
+    expectClose(figures.phaseW[k]![0]!, p.kW * 1000, { rel: REL, abs: REL * sMax }, `${kernel.path} phase ${p.phase} W`);
+    expectClose(figures.phaseVar[k]![0]!, p.kvar * 1000, { rel: REL, abs: REL * sMax }, `${kernel.path} phase ${p.phase} var`);
+  });
+  if (result.unbalance) expectClose(figures.unbalancePercent[0]!, result.unbalance.voltageFactorPercent, { rel: 1e-7, abs: 1e-9 }, `${kernel.path} unbalance`);
 }
 
 describe('batch kernels agree with solveNetwork to 1e-9 relative', () => {

@@ -20,6 +20,7 @@ import {
   newIntervalState,
   resolveKernelOptions,
   type BatchKernel,
+  modulus,
   type KernelOptions,
 } from './batchKernel.js';
 
@@ -97,7 +98,7 @@ export function createClosedFormKernel(net: BatchNetwork, options?: KernelOption
       vnRe = (numRe * sumYr + numIm * sumYi) / sm;
       vnIm = (numIm * sumYr - numRe * sumYi) / sm;
     }
-    let change = Math.hypot(vnRe - state.reference[0]!, vnIm - state.reference[1]!);
+    let change = modulus(vnRe - state.reference[0]!, vnIm - state.reference[1]!);
     let inRe = 0;
     let inIm = 0;
     for (let k = 0; k < np; k++) {
@@ -107,7 +108,7 @@ export function createClosedFormKernel(net: BatchNetwork, options?: KernelOption
       const ii = yp[2 * k]! * di + yp[2 * k + 1]! * dr;
       const br = emfRe[k]! - (zr * ir - zi * ii);
       const bi = emfIm[k]! - (zr * ii + zi * ir);
-      change = Math.max(change, Math.hypot(br - state.busRe[k]!, bi - state.busIm[k]!));
+      change = Math.max(change, modulus(br - state.busRe[k]!, bi - state.busIm[k]!));
       state.lineRe[k] = ir;
       state.lineIm[k] = ii;
       state.busRe[k] = br;
@@ -133,7 +134,7 @@ export function createClosedFormKernel(net: BatchNetwork, options?: KernelOption
       if (!isLinearInterval(net, powers)) {
         let previous = 0;
         for (;;) {
-          for (let k = 0; k < np; k++) loadV[k] = Math.hypot(state.busRe[k]! - state.reference[0]!, state.busIm[k]! - state.reference[1]!);
+          for (let k = 0; k < np; k++) loadV[k] = modulus(state.busRe[k]! - state.reference[0]!, state.busIm[k]! - state.reference[1]!);
           const change = solveWith(powers, loadV, interval);
           iterations++;
           if (!Number.isFinite(change)) throw new NumericalError('non-finite', `interval ${interval + 1}: the load iteration produced non-finite voltages`);

@@ -21,6 +21,7 @@ import {
   newIntervalState,
   resolveKernelOptions,
   type BatchKernel,
+  modulus,
   type KernelOptions,
 } from './batchKernel.js';
 
@@ -136,9 +137,9 @@ export function createNodalKernel(net: BatchNetwork, options?: KernelOptions): B
   function factorAndSolve(interval: number): void {
     for (let c = 0; c < n; c++) {
       let pivot = c;
-      let best = Math.hypot(aRe[c * n + c]!, aIm[c * n + c]!);
+      let best = modulus(aRe[c * n + c]!, aIm[c * n + c]!);
       for (let r = c + 1; r < n; r++) {
-        const m = Math.hypot(aRe[r * n + c]!, aIm[r * n + c]!);
+        const m = modulus(aRe[r * n + c]!, aIm[r * n + c]!);
         if (m > best) {
           best = m;
           pivot = r;
@@ -198,7 +199,7 @@ export function createNodalKernel(net: BatchNetwork, options?: KernelOptions): B
 
   const oldRe = new Float64Array(n);
   const oldIm = new Float64Array(n);
-  const edgeVoltage = (e: number) => Math.hypot(knownRe(edgeFrom[e]!) - knownRe(edgeTo[e]!), knownIm(edgeFrom[e]!) - knownIm(edgeTo[e]!));
+  const edgeVoltage = (e: number) => modulus(knownRe(edgeFrom[e]!) - knownRe(edgeTo[e]!), knownIm(edgeFrom[e]!) - knownIm(edgeTo[e]!));
 
   function linearSolve(powers: Float64Array, atNominal: boolean, interval: number): number {
     for (let e = 0; e < net.edges.length; e++) {
@@ -211,7 +212,7 @@ export function createNodalKernel(net: BatchNetwork, options?: KernelOptions): B
     assemble();
     factorAndSolve(interval);
     let change = 0;
-    for (let i = 0; i < n; i++) change = Math.max(change, Math.hypot(vRe[i]! - oldRe[i]!, vIm[i]! - oldIm[i]!));
+    for (let i = 0; i < n; i++) change = Math.max(change, modulus(vRe[i]! - oldRe[i]!, vIm[i]! - oldIm[i]!));
     return change / vBase;
   }
 

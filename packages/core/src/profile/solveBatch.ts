@@ -4,7 +4,7 @@
  */
 import type { BatchNetwork, DriverColumns } from './batchNetwork.js';
 import { edgePowersAt } from './batchNetwork.js';
-import type { BatchKernel, IntervalState, KernelOptions } from './batchKernel.js';
+import { modulus, type BatchKernel, type IntervalState, type KernelOptions } from './batchKernel.js';
 import { closedFormBlocker, createClosedFormKernel } from './closedFormKernel.js';
 import { createNodalKernel } from './nodalKernel.js';
 
@@ -49,26 +49,30 @@ export function recordInterval(state: IntervalState, sequence: 'ABC' | 'ACB', ou
     const vi = state.busIm[k]! - ri;
     const ir = state.lineRe[k]!;
     const ii = state.lineIm[k]!;
-    out.lineA[k]![i] = Math.hypot(ir, ii);
-    out.phaseV[k]![i] = Math.hypot(vr, vi);
+    out.lineA[k]![i] = modulus(ir, ii);
+    out.phaseV[k]![i] = modulus(vr, vi);
     // S = V·conj(I)
     out.phaseW[k]![i] = vr * ir + vi * ii;
     out.phaseVar[k]![i] = vi * ir - vr * ii;
   }
-  out.neutralA[i] = Math.hypot(state.neutral[0]!, state.neutral[1]!);
+  out.neutralA[i] = modulus(state.neutral[0]!, state.neutral[1]!);
   if (np === 3) {
-    // V1 = Va + a·Vb + a²·Vc, V2 = Va + a²·Vb + a·Vc (the 1/3 cancels in the ratio); ACB swaps a and a².
-    const s = sequence === 'ABC' ? 1 : -1;
-    const [ar, ai, br, bi, cr, ci] = [state.busRe[0]!, state.busIm[0]!, state.busRe[1]!, state.busIm[1]!, state.busRe[2]!, state.busIm[2]!];
-    // a·x = (−½ + jH)·x, a²·x = (−½ − jH)·x
-    const aXr = (xr: number, xi: number, sg: number) => -0.5 * xr - sg * H * xi;
-    const aXi = (xr: number, xi: number, sg: number) => -0.5 * xi + sg * H * xr;
-    const p1r = ar + aXr(br, bi, s) + aXr(cr, ci, -s);
-    const p1i = ai + aXi(br, bi, s) + aXi(cr, ci, -s);
-    const p2r = ar + aXr(br, bi, -s) + aXr(cr, ci, s);
-    const p2i = ai + aXi(br, bi, -s) + aXi(cr, ci, s);
-    const m1 = Math.hypot(p1r, p1i);
-    out.unbalancePercent[i] = m1 === 0 ? 0 : (100 * Math.hypot(p2r, p2i)) / m1;
+    // V1 = Va + a·Vb + a²·Vc, V2 = Va + a²·Vb + a·Vc (the 1/3 cancels in the ratio), with
+    // a·x = (−½ + jH)·x; ACB swaps a and a² (s = −1).
+    const s = sequence === 'ABC' ? H : -H;
+    const ar = state.busRe[0]!;
+    const ai = state.busIm[0]!;
+    const br = state.busRe[1]!;
+    const bi = state.busIm[1]!;
+    const cr = state.busRe[2]!;
+    const ci = state.busIm[2]!;
+    const sumR = ar - 0.5 * (br + cr);
+    const sumI = ai - 0.5 * (bi + ci);
+    // ±jH·(Vb − Vc)
+    const dr = -s * (bi - ci);
+    const di = s * (br - cr);
+    const m1 = modulus(sumR + dr, sumI + di);
+    out.unbalancePercent[i] = m1 === 0 ? 0 : (100 * modulus(sumR - dr, sumI - di)) / m1;
   }
 }
 

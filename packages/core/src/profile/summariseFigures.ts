@@ -106,7 +106,18 @@ export function summariseFigures(f: IntervalFigures, ctx: SummaryContext): Profi
     const hi = maximumOf(f.phaseV[k]!);
     return { phase: p, minPercent: lo.value * vPct, minAt: ctx.label(lo.index), maxPercent: hi.value * vPct, maxAt: ctx.label(hi.index) };
   });
-  const anyPhase = (test: (v: number) => boolean) => (i: number) => f.phaseV.some((col) => test(col[i]! * vPct));
+  let low = 0;
+  let high = 0;
+  for (let i = 0; i < n; i++) {
+    let lo = Number.POSITIVE_INFINITY;
+    let hi = 0;
+    for (const col of f.phaseV) {
+      if (col[i]! < lo) lo = col[i]!;
+      if (col[i]! > hi) hi = col[i]!;
+    }
+    if (lo * vPct < limits.voltageLowPercent) low++;
+    if (hi * vPct > limits.voltageHighPercent) high++;
+  }
   const totalW = new Float64Array(n);
   const totalVar = new Float64Array(n);
   for (let k = 0; k < board.phases.length; k++)
@@ -133,8 +144,8 @@ export function summariseFigures(f: IntervalFigures, ctx: SummaryContext): Profi
     hours: n * h,
     conductors,
     voltages,
-    hoursVoltageLow: countWhere(n, anyPhase((v) => v < limits.voltageLowPercent)) * h,
-    hoursVoltageHigh: countWhere(n, anyPhase((v) => v > limits.voltageHighPercent)) * h,
+    hoursVoltageLow: low * h,
+    hoursVoltageHigh: high * h,
     unbalance: threePhase
       ? {
           maxPercent: vuMax.value,
