@@ -1,11 +1,13 @@
 /** The trivar command line: commands wired to core; no physics here. */
 import { Command, CommanderError, InvalidArgumentError, Option } from 'commander';
 import { EXIT, exitCodeFor, messageFor } from './exitCodes.js';
-import type { CliIo } from './io.js';
+import { DEFAULT_MAX_INPUT_MB, type CliIo } from './io.js';
 import { runSolve } from './commands/solve.js';
 import { runSchema } from './commands/schema.js';
 import { runCorrect, type CorrectCommandOptions } from './commands/correct.js';
 import { runProfile, type ProfileCommandOptions } from './commands/profile.js';
+import { DIAGRAM_VIEWS, runDiagram, type DiagramCommandOptions } from './commands/diagram.js';
+import { runReport, type ReportCommandOptions } from './commands/report.js';
 import packageJson from '../package.json' with { type: 'json' };
 
 export const VERSION: string = packageJson.version;
@@ -22,6 +24,7 @@ Exit codes:
   2  the command line is wrong
   3  the board file cannot be read or is not valid (every problem is listed with its field path)
   4  the board has no solution (singular network, or loads beyond what the supply can deliver)
+  6  the output could not be written (disk full); a reader closing the pipe early ends trivar quietly with 0
   1  internal error (a bug in trivar)`;
 
 const CORRECT_EXAMPLES = `
@@ -54,6 +57,19 @@ Examples:
 
 Exit codes: as for solve (3 also for interval data that cannot be read: every bad cell is named
 by row and column)`;
+const DIAGRAM_EXAMPLES = `
+Examples:
+  trivar diagram examples/corner-bakery.yaml -o bakery-phasors.svg
+  trivar diagram examples/riverside-cold-store.yaml --with-correction -o cold-store.svg
+  trivar diagram examples/riverside-cold-store.yaml --view triangles -o triangles.svg
+  trivar diagram examples/hillside-workshop.yaml --view sequence > sequence.svg`;
+
+const REPORT_EXAMPLES = `
+The report includes the correction study when the board file has a "correction:" section.
+
+Examples:
+  trivar report examples/riverside-cold-store.yaml -o cold-store.html
+  trivar report examples/corner-bakery.yaml --format md -o bakery.md   (writes bakery-*.svg beside it)`;
 
 function numberIn(min: number, max: number, what: string) {
   return (text: string): number => {
@@ -61,6 +77,13 @@ function numberIn(min: number, max: number, what: string) {
     if (!Number.isFinite(x) || x <= min || x > max) throw new InvalidArgumentError(`expected ${what}.`);
     return x;
   };
+}
+
+/** The read limit for board files and standard input, checked while reading. */
+function maxInputOption(): Option {
+  return new Option('--max-input-mb <MB>', `refuse a board larger than this (default ${DEFAULT_MAX_INPUT_MB} MB)`).argParser(
+    numberIn(0, 4096, 'a size in MB above 0 and at most 4096'),
+  );
 }
 
 /** What a command that ran to the end reports through the exit code (set by `correct`). */
@@ -83,6 +106,7 @@ export function createProgram(io: CliIo, outcome: RunOutcome = { exitCode: EXIT.
     .argument('<board>', 'board file (YAML or JSON), or - for standard input')
     .option('--json', 'print the full result as JSON instead of the report')
     .option('--open-neutral', 'also show what each line-to-neutral load would see if the neutral conductor broke')
+    .addOption(maxInputOption())
     .addHelpText('after', SOLVE_EXAMPLES)
     .action(async (board: string, opts: { json?: boolean; openNeutral?: boolean }) => {
       await runSolve(board, opts, io);
@@ -102,6 +126,7 @@ export function createProgram(io: CliIo, outcome: RunOutcome = { exitCode: EXIT.
     .option('--light-load <fraction>', 'check the fixed part at this fraction of every load (0-1)', numberIn(-1e-12, 1, 'a fraction from 0 to 1'))
     .addOption(new Option('--pattern <steps>', 'switched-step ratios of the bank').choices(['fixed', '1:1:1', '1:2:2', '1:2:4']))
     .option('--json', 'print the full report as JSON instead of the text report')
+    .addOption(maxInputOption())
     .addHelpText('after', CORRECT_EXAMPLES)
     .action(async (board: string, opts: CorrectCommandOptions) => {
       const report = await runCorrect(board, opts, io);
@@ -127,6 +152,30 @@ export function createProgram(io: CliIo, outcome: RunOutcome = { exitCode: EXIT.
     .addHelpText('after', PROFILE_EXAMPLES)
     .action(async (board: string, opts: ProfileCommandOptions) => {
       await runProfile(board, opts, io);
+    });
+
+  program
+    .command('diagram')
+    .description('draw the board as SVG: phasors (voltages, line and neutral currents), sequence components, or per-line current triangles')
+    .argument('<board>', 'board file (YAML or JSON), or - for standard input')
+    .addOption(new Option('--view <name>', 'what to draw').choices([...DIAGRAM_VIEWS]).default('phasors'))
+    .option('--with-correction', "overlay the board before and after the board file's correction study")
+    .option('-o, --output <file>', 'write the SVG to this file (default: standard output)')
+    .addHelpText('after', DIAGRAM_EXAMPLES)
+    .action(async (board: string, opts: DiagramCommandOptions) => {
+      await runDiagram(board, opts, io);
+    });
+
+  program
+    .command('report')
+    .description('write a self-contained report of the board (HTML, or Markdown with SVG figures beside it)')
+    .argument('<board>', 'board file (YAML or JSON), or - for standard input')
+    .option('-o, --output <file>', 'report file to write (HTML may go to standard output)')
+    .addOption(new Option('--format <kind>', 'report format').choices(['html', 'md']).default('html'))
+    .option('--no-correction', "leave out the board file's correction study")
+    .addHelpText('after', REPORT_EXAMPLES)
+    .action(async (board: string, opts: ReportCommandOptions) => {
+      await runReport(board, opts, io, `Made with trivar ${VERSION}. Figures come from the model entered; check them against measurements and local codes.`);
     });
 
   program

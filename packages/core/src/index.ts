@@ -25,6 +25,7 @@ export type {
 export { boardSchema } from './board/boardSchema.js';
 export type { BoardValidation } from './board/validateBoard.js';
 export { validateBoard, parseBoard, readBoardText, parseBoardText } from './board/validateBoard.js';
+export { BOARD_TEXT_LIMITS } from './board/readBoardText.js';
 export { boardJsonSchema } from './board/boardJsonSchema.js';
 export { acceptedConnections } from './board/boardRules.js';
 export type { Board, BoardLoad, LoadBranch, Terminal, ZipFractions, PhaseId } from './board/boardModel.js';
@@ -33,6 +34,9 @@ export { normaliseBoard } from './board/normaliseBoard.js';
 // Solving
 export type { SolveOptions, NetworkSolution, BranchState } from './network/solveNetwork.js';
 export { solveNetwork, terminalVoltage } from './network/solveNetwork.js';
+export type { CompiledBoard } from './network/solveNetwork.js';
+export { compileBoard, solveCompiledBoard } from './network/solveNetwork.js';
+export type { CompiledNetwork } from './network/compiledNetwork.js';
 export type { SolveBoardOptions } from './solveBoard.js';
 export { solveBoard, solveBoardModel } from './solveBoard.js';
 
@@ -46,6 +50,11 @@ export { boardPowerDefinitions, effectiveQuantities } from './analysis/powerDefi
 export { analyseSolution } from './analysis/analyseSolution.js';
 export { powerReading } from './analysis/powerReading.js';
 export { studyOpenNeutral } from './analysis/studyOpenNeutral.js';
+export { OPEN_NEUTRAL_LIMITS, OPEN_NEUTRAL_METHOD } from './analysis/openNeutralWording.js';
+export type { NeutralBreakPath, FollowNeutralBreakOptions } from './analysis/followNeutralBreak.js';
+export { followNeutralBreak, withNeutralFault } from './analysis/followNeutralBreak.js';
+export type { NewtonOptions, NewtonOutcome } from './network/solveNetworkByNewton.js';
+export { solveNetworkByNewton } from './network/solveNetworkByNewton.js';
 export { WARNING_THRESHOLDS } from './analysis/boardWarnings.js';
 
 // Correction
@@ -112,3 +121,17 @@ export type { ProfileStudy, ProfileStudyInput, ProfileStudyOptions, ProfileResul
 export { studyProfile } from './profile/studyProfile.js';
 export type { ChartSeries, TimeChartInput, DurationChartInput } from './render/profileCharts.js';
 export { renderTimeChart, renderDurationChart } from './render/profileCharts.js';
+
+// Drawings and reports (SVG/HTML/Markdown text; the CLI writes the files)
+export type { PhasorDiagramOptions } from './render/renderPhasorDiagram.js';
+export { renderPhasorDiagram } from './render/renderPhasorDiagram.js';
+export { renderSequenceDiagram } from './render/renderSequenceDiagram.js';
+export type { CurrentTriangleOptions, LineCurrentParts } from './render/renderCurrentTriangles.js';
+export { renderCurrentTriangles, lineCurrentParts } from './render/renderCurrentTriangles.js';
+export type { ReportDocument, ReportSection, ReportBlock, ReportColumn } from './render/report/reportDocument.js';
+export type { BoardReportInput } from './render/report/buildBoardReport.js';
+export { buildBoardReport } from './render/report/buildBoardReport.js';
+export type { ReportHtmlOptions } from './render/report/renderReportHtml.js';
+export { renderReportHtml } from './render/report/renderReportHtml.js';
+export type { MarkdownReport } from './render/report/renderReportMarkdown.js';
+export { renderReportMarkdown } from './render/report/renderReportMarkdown.js';

@@ -1,6 +1,7 @@
 /** `trivar correct`: size, choose and verify power-factor correction for a board. */
 import { correctBoard, InputError, normaliseBoard, parseBoard, readBoardText, type CorrectionReport } from '@trivar/core';
 import type { CliIo } from '../io.js';
+import { writeResult } from '../writeResult.js';
 import { UsageError } from '../exitCodes.js';
 import { renderCorrectionReport } from '../format/correctionReport.js';
 
@@ -13,6 +14,7 @@ export interface CorrectCommandOptions {
   readonly upperPf?: number;
   readonly lightLoad?: number;
   readonly pattern?: string;
+  readonly maxInputMb?: number;
 }
 
 /** The board file's `correction` section with the command-line options laid over it. */
@@ -31,7 +33,7 @@ function studySpec(fromFile: Record<string, unknown> | undefined, o: CorrectComm
 }
 
 export async function runCorrect(file: string, options: CorrectCommandOptions, io: CliIo): Promise<CorrectionReport> {
-  const spec = parseBoard(readBoardText(await io.readSource(file)));
+  const spec = parseBoard(readBoardText(await io.readSource(file, options.maxInputMb === undefined ? {} : { maxInputMB: options.maxInputMb })));
   const study = studySpec(spec.correction as Record<string, unknown> | undefined, options);
   if (study.arrangement === undefined)
     throw new UsageError('choose what to size: --arrangement star-bank | delta-bank | balancing-compensator, or correction.arrangement in the board file');
@@ -51,6 +53,6 @@ export async function runCorrect(file: string, options: CorrectCommandOptions, i
       );
     throw error;
   }
-  io.stdout(options.json ? `${JSON.stringify(report, null, 2)}\n` : renderCorrectionReport(report));
+  writeResult(io, report, options.json, renderCorrectionReport);
   return report;
 }

@@ -1,7 +1,7 @@
 /** `trivar profile`: interval data (or the board file's scenarios) through the batch solver. */
-import { realpathSync, writeFileSync, mkdirSync, existsSync } from 'node:fs';
+import { mkdirSync } from 'node:fs';
 import { availableParallelism } from 'node:os';
-import { join, resolve } from 'node:path';
+import { join } from 'node:path';
 import {
   checkIntervalSequence,
   driverColumns,
@@ -16,11 +16,13 @@ import {
   type ProfileStudy,
 } from '@trivar/core';
 import type { CliIo } from '../io.js';
-import { EXIT, UsageError } from '../exitCodes.js';
+import { UsageError } from '../exitCodes.js';
+import { assertNotInput, writeOutputFile } from '../outputFiles.js';
+import { writeResult } from '../writeResult.js';
 import { readCsvHeader, readIntervalRows } from '../read/intervalCsv.js';
 import { renderProfileReport } from '../format/profileReport.js';
 import { intervalCsv, summaryCsv } from '../format/profileCsv.js';
-import { writeProfileCharts } from '../format/profileChartFiles.js';
+import { CHART_FILES, writeProfileCharts } from '../format/profileChartFiles.js';
 import { startProgress } from '../progress.js';
 
 export interface ProfileCommandOptions {
@@ -37,29 +39,14 @@ export interface ProfileCommandOptions {
   readonly threads?: number;
 }
 
-/** Refuses to write over an input file. */
-function guardOutput(out: string, inputs: readonly string[]): string {
-  const target = resolve(out);
-  for (const input of inputs) {
-    if (input === '-') continue;
-    const a = existsSync(target) ? realpathSync(target) : target;
-    if (existsSync(input) && realpathSync(input) === a) throw new UsageError(`refusing to write "${out}": it is an input file`);
-  }
-  return target;
-}
-
 export async function runProfile(file: string, options: ProfileCommandOptions, io: CliIo): Promise<ProfileStudy> {
   const spec = parseBoard(readBoardText(await io.readSource(file)));
   const board = normaliseBoard(spec);
   const zone = options.timeZone ?? 'UTC';
   if (!isKnownTimeZone(zone)) throw new UsageError(`--time-zone: "${zone}" is not a time zone this system knows (expected an IANA name such as Europe/Lisbon or America/Chicago)`);
   if (!options.data) throw new UsageError('give the interval data with --data <file.csv> (see trivar profile --help for the columns)');
-  const inputs = [file, options.data];
-  const outputs = {
-    summary: options.summaryCsv ? guardOutput(options.summaryCsv, inputs) : null,
-    intervals: options.intervalsCsv ? guardOutput(options.intervalsCsv, inputs) : null,
-    charts: options.charts ? guardOutput(options.charts, inputs) : null,
-  };
+  const chartFiles = options.charts ? CHART_FILES.map((name) => join(options.charts!, name)) : [];
+  assertNotInput([options.summaryCsv, options.intervalsCsv, ...chartFiles].filter((x): x is string => x !== undefined), [file, options.data]);
   const plan = planColumns(board, readCsvHeader(options.data), { ...(spec.profile?.groups ? { groups: spec.profile.groups } : {}), undrivenAtRating: options.unlistedAtRating ?? false });
   const progress = startProgress(io);
   progress.stage('reading', 1);
@@ -92,13 +79,12 @@ export async function runProfile(file: string, options: ProfileCommandOptions, i
     progress.stop();
   }
   const currency = spec.profile?.tariff?.currency ?? 'units';
-  if (outputs.summary) writeFileSync(outputs.summary, summaryCsv(study.result));
-  if (outputs.intervals) writeFileSync(outputs.intervals, intervalCsv(study));
-  if (outputs.charts) {
-    mkdirSync(outputs.charts, { recursive: true });
-    writeProfileCharts(study, outputs.charts, (name, text) => writeFileSync(join(outputs.charts!, name), text));
+  if (options.summaryCsv) writeOutputFile(options.summaryCsv, summaryCsv(study.result));
+  if (options.intervalsCsv) writeOutputFile(options.intervalsCsv, intervalCsv(study));
+  if (options.charts) {
+    mkdirSync(options.charts, { recursive: true });
+    writeProfileCharts(study, (name, text) => writeOutputFile(join(options.charts!, name), text));
   }
-  io.stdout(options.json ? `${JSON.stringify(study.result, null, 2)}\n` : renderProfileReport(study.result, currency));
-  void EXIT;
+  writeResult(io, study.result, options.json, (r) => renderProfileReport(r, currency));
   return study;
 }

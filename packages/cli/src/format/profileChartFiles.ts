@@ -17,7 +17,9 @@ function boardPf(f: IntervalFigures): Float64Array {
   return out;
 }
 
-export function writeProfileCharts(study: ProfileStudy, _dir: string, write: (name: string, text: string) => void): string[] {
+export const CHART_FILES = ['currents.svg', 'power-factor.svg', 'load-duration.svg'] as const;
+
+export function writeProfileCharts(study: ProfileStudy, write: (name: string, text: string) => void): void {
   const f = study.before;
   const phases = f.lineA.length;
   const names = ['A', 'B', 'C'].slice(0, phases);
@@ -27,5 +29,4 @@ export function writeProfileCharts(study: ProfileStudy, _dir: string, write: (na
   const pf = [{ name: 'before', values: boardPf(f) }, ...(study.after ? [{ name: 'with bank', values: boardPf(study.after) }] : [])];
   write('power-factor.svg', renderTimeChart({ title: `${board}: board power factor (mean per column; below zero = leading)`, unit: 'PF', series: pf, labelOf: study.label, mode: 'mean' }));
   write('load-duration.svg', renderDurationChart({ title: `${board}: load-duration curves`, unit: 'A', series: currents, intervalHours: study.result.intervals.intervalSeconds / 3600 }));
-  return ['currents.svg', 'power-factor.svg', 'load-duration.svg'];
 }

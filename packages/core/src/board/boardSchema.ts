@@ -74,6 +74,8 @@ export const feederSchema = z
 
 export const loadSchema = z.strictObject({
   name: z.string().min(1).describe('circuit name'),
+  circuit: z.string().min(1).optional().describe('circuit number or way on the board, for the panel schedule (default: position in the list)'),
+  breakerA: positive.optional().describe('rated current of the circuit breaker or fuse, A (shown in the panel schedule)'),
   connection: z.enum(CONNECTIONS).describe('where the load connects'),
   starPoint: z
     .enum(['neutral', 'floating'])

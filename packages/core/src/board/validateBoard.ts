@@ -2,11 +2,13 @@
  * Validation of board files: schema first (zod), then the cross-field rules.
  * `validateBoard` returns a result; `parseBoard` throws an `InputError`.
  */
-import { parseDocument } from 'yaml';
-import { InputError, inputIssue, type InputIssue } from '../errors.js';
+import { InputError, type InputIssue } from '../errors.js';
 import { inputIssuesFromZod } from '../_internal/zodIssues.js';
 import { boardSchema, type BoardSpec } from './boardSchema.js';
 import { BOARD_RULES } from './boardRules.js';
+import { readBoardText } from './readBoardText.js';
+
+export { readBoardText };
 
 export type BoardValidation = { ok: true; board: BoardSpec } | { ok: false; issues: InputIssue[] };
 
@@ -29,29 +31,6 @@ export function parseBoard(input: unknown): BoardSpec {
   const result = validateBoard(input);
   if (!result.ok) throw new InputError(result.issues);
   return result.board;
-}
-
-/**
- * Reads board text (YAML, of which JSON is a subset) into a plain object. YAML
- * syntax errors become an `InputError` naming the line and column.
- * @throws {InputError}
- */
-export function readBoardText(text: string): unknown {
-  const doc = parseDocument(text, { prettyErrors: true, uniqueKeys: true });
-  if (doc.errors.length) {
-    throw new InputError(
-      doc.errors.map((e) => {
-        const at = e.linePos?.[0];
-        const where = at ? `line ${at.line}, column ${at.col}` : 'the file';
-        return { code: 'syntax', path: '', expected: 'valid YAML or JSON', message: `${where}: ${e.message.split('\n')[0]!.replace(/ at line \d+, column \d+:?$/, '')}` };
-      }),
-      'the board file could not be read',
-    );
-  }
-  const value: unknown = doc.toJS();
-  if (value === null || value === undefined)
-    throw new InputError([inputIssue('missing', '', 'a board object with supply and loads')], 'the board file is empty');
-  return value;
 }
 
 /** `readBoardText` then `parseBoard`. @throws {InputError} */

@@ -11,7 +11,8 @@
 import { abs, add, inverse, type ComplexValue } from '../complex.js';
 import type { Board, PhaseId, Terminal } from '../board/boardModel.js';
 
-export const REFERENCE = -1;
+export { REFERENCE } from './circuit.js';
+import { REFERENCE } from './circuit.js';
 
 export interface NetworkTopology {
   /** Human names of the unknown nodes, index = node number. */

@@ -1,0 +1,148 @@
+/**
+ * Solver speed, each figure a ratio against a baseline measured in this same run
+ * (never a timed unit test). Run: `npm run bench:solver` (bundles this file with
+ * esbuild against core's source, see scripts/dev-run.mjs).
+ *
+ * 1. The one-board, three-load network: the solver as it was (bench/baseline), the
+ *    public `solveNetwork` (compiles each call), and the compiled path (compile once,
+ *    `network.solve()` many times). Goal: compiled ≥ 1e6 solves/s and ≥ 35× the old path.
+ * 2. A board with 2,000 loads of which 400 are floating stars: old against new.
+ * 3. CLI start-up: `trivar solve` on a 1,000-load board and `trivar correct` on the shipped
+ *    examples against a bare `node -e ""`, interleaved. Goal: ≤ 3×.
+ * Pass `--quick` for fewer runs.
+ */
+import { spawnSync } from 'node:child_process';
+import { mkdtempSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { compileBoard, normaliseBoard, parseBoard, solveBoard, solveNetwork, type Board, type BoardSpec } from '../packages/core/src/index.js';
+import { solveNetwork as solveNetworkBefore } from './baseline/solveNetworkBefore.js';
+
+const quick = process.argv.includes('--quick');
+const budgetMs = quick ? 150 : 600;
+
+/** Calls `fn` repeatedly for about `budgetMs`, returns calls per second (best of three rounds). */
+function rate(fn: () => void): number {
+  for (let i = 0; i < 50; i++) fn();
+  let best = 0;
+  for (let round = 0; round < 3; round++) {
+    let calls = 0;
+    const start = performance.now();
+    let elapsed = 0;
+    do {
+      for (let i = 0; i < 20; i++) fn();
+      calls += 20;
+      elapsed = performance.now() - start;
+    } while (elapsed < budgetMs / 3);
+    best = Math.max(best, (calls * 1000) / elapsed);
+  }
+  return best;
+}
+
+/** Median wall time of `fn`, ms. */
+function timeMs(fn: () => void, runs: number): number {
+  fn();
+  const times: number[] = [];
+  for (let i = 0; i < runs; i++) {
+    const start = performance.now();
+    fn();
+    times.push(performance.now() - start);
+  }
+  return times.sort((a, b) => a - b)[Math.floor(runs / 2)]!;
+}
+
+const fmt = (x: number) => (x >= 1e5 ? x.toExponential(2) : x.toFixed(x >= 100 ? 0 : 1));
+const supply = { system: 'three-phase-4wire', voltage: { lineToLine: 400 }, frequencyHz: 50, transformer: { kVA: 250, impedancePercent: 4, xOverR: 3 } } as const;
+const feeder = { line: { r: 0.02, x: 0.01 }, neutral: { r: 0.03, x: 0.01 } };
+
+function threeLoadBoard(model: 'constant-power' | 'constant-impedance'): Board {
+  return normaliseBoard(
+    parseBoard({
+      supply,
+      feeder,
+      loads: [
+        { name: 'ovens', connection: 'A-N', kW: 9, pf: 0.98, model },
+        { name: 'lights', connection: 'B-N', kW: 3, pf: 0.95, model },
+        { name: 'hoist', connection: 'C-N', kW: 5, pf: 0.8, model },
+      ],
+    }),
+  );
+}
+
+function manyLoadSpec(loads: number, floatingStars: number): BoardSpec {
+  const singles = ['A-N', 'B-N', 'C-N', 'A-B', 'B-C', 'C-A'] as const;
+  return {
+    name: 'bench board',
+    supply,
+    feeder,
+    loads: Array.from({ length: loads }, (_, k) =>
+      k < floatingStars
+        ? { name: `star ${k}`, connection: 'ABC-star' as const, starPoint: 'floating' as const, ohms: { r: 400 + (k % 7) * 30, x: 100 + (k % 5) * 20 } }
+        : { name: `circuit ${k}`, connection: singles[k % 6]!, kW: 0.05 + (k % 11) * 0.01, pf: 0.85 + (k % 3) * 0.05 },
+    ),
+  };
+}
+
+console.log('trivar solver benchmark' + (quick ? ' (quick)' : ''));
+console.log('');
+console.log('1. one board, three loads (solves per second)');
+for (const model of ['constant-power', 'constant-impedance'] as const) {
+  const board = threeLoadBoard(model);
+  const before = rate(() => solveNetworkBefore(board));
+  const publicPath = rate(() => solveNetwork(board));
+  const compiled = compileBoard(board);
+  const compiledRate = rate(() => compiled.network.solve());
+  console.log(`   ${model}:`);
+  console.log(`     before (dense MNA, rebuilt each call)   ${fmt(before)} /s`);
+  console.log(`     solveNetwork (compiles each call)        ${fmt(publicPath)} /s   ${(publicPath / before).toFixed(1)}x`);
+  console.log(`     compiled network.solve()                 ${fmt(compiledRate)} /s   ${(compiledRate / before).toFixed(1)}x   (goal >= 1e6 /s, >= 35x)`);
+}
+
+console.log('');
+console.log('2. one board, 2,000 loads, 400 of them floating stars (ms per solve, median)');
+{
+  const board = normaliseBoard(parseBoard(manyLoadSpec(2000, 400)));
+  const runs = quick ? 3 : 7;
+  const before = timeMs(() => solveNetworkBefore(board), quick ? 1 : 3);
+  const after = timeMs(() => solveNetwork(board), runs);
+  const full = timeMs(() => solveBoard(manyLoadSpec(2000, 400)), runs);
+  console.log(`     before                                   ${before.toFixed(1)} ms`);
+  console.log(`     solveNetwork                             ${after.toFixed(2)} ms   ${(before / after).toFixed(0)}x faster`);
+  console.log(`     solveBoard (validate + solve + analyse)  ${full.toFixed(1)} ms`);
+}
+
+
+console.log('');
+console.log('3. CLI start-up against a bare `node -e ""` (median wall time, interleaved)');
+{
+  const dir = mkdtempSync(join(tmpdir(), 'trivar-bench-'));
+  const big = join(dir, 'thousand-loads.json');
+  writeFileSync(big, JSON.stringify(manyLoadSpec(1000, 0)));
+  const cli = 'packages/cli/bin/trivar.js';
+  const cases: [string, string[]][] = [
+    ['trivar solve (1,000-load board)', [cli, 'solve', big]],
+    ...['corner-bakery', 'harbour-cottages', 'hillside-workshop', 'riverside-cold-store'].map(
+      (name): [string, string[]] => [`trivar correct ${name}`, [cli, 'correct', `examples/${name}.yaml`]],
+    ),
+  ];
+  const wall = (args: string[]) => {
+    const start = process.hrtime.bigint();
+    const r = spawnSync(process.execPath, args, { stdio: ['ignore', 'ignore', 'pipe'] });
+    if (r.status !== 0 && r.status !== 5) throw new Error(`${args.join(' ')} exited ${r.status}: ${r.stderr}`);
+    return Number(process.hrtime.bigint() - start) / 1e6;
+  };
+  const median = (xs: number[]) => [...xs].sort((a, b) => a - b)[Math.floor(xs.length / 2)]!;
+  const runs = quick ? 5 : 11;
+  const bare: number[] = [];
+  const times = cases.map(() => [] as number[]);
+  cases.forEach(([, args]) => wall(args));
+  for (let i = 0; i < runs; i++) {
+    bare.push(wall(['-e', '']));
+    cases.forEach(([, args], k) => times[k]!.push(wall(args)));
+  }
+  console.log(`     bare node -e ""                          ${median(bare).toFixed(1)} ms`);
+  cases.forEach(([label], k) => {
+    const m = median(times[k]!);
+    console.log(`     ${label.padEnd(40)} ${m.toFixed(1)} ms   ${(m / median(bare)).toFixed(2)}x   (goal <= 3x)`);
+  });
+}

@@ -1,0 +1,514 @@
+/**
+ * Compile once, solve many: a circuit turned into numbered unknowns, a fixed
+ * sparse pattern, the fixed admittances already stamped, and typed arrays for
+ * every per-solve quantity. A solve copies the fixed part, stamps the load
+ * admittances, factorises and substitutes — no per-element allocation.
+ *
+ * Folding: an EMF behind an admittance becomes its Norton equivalent (the
+ * admittance on the diagonal, Y·E injected), so the source's internal node never
+ * becomes an unknown; an ideal EMF fixes its node's voltage outright and moves
+ * to the right-hand side. Nodes with no path to the reference are left out
+ * (their voltage is NaN and `live` is 0).
+ *
+ * The fixed-point iteration for voltage-dependent loads is the one described in
+ * solveNetwork.ts; it lives here so every caller (board solve, installation
+ * solve, correction sizing, batches) shares it.
+ */
+import { NumericalError } from '../errors.js';
+import type { ComplexValue } from '../complex.js';
+import { leastDeterminedUnknown, solveComplexSystem } from '../_internal/complexLu.js';
+import { analysePattern, factorInPlace, solveFactored, type SparsePattern } from '../_internal/sparseComplexLu.js';
+import { REFERENCE, type Circuit } from './circuit.js';
+import { resolveSolveOptions, type SolveOptions } from './solveOptions.js';
+
+
+/** A pivot this small against the largest diagonal sends the solve to the dense pivoted LU. */
+const SPARSE_PIVOT_FLOOR = 1e-11;
+/** A voltage change (fraction of nominal) this small is round-off: the iteration has settled. */
+const ROUND_OFF_CHANGE = 1e-14;
+
+const NODE_FREE = 1;
+const NODE_FIXED = 2;
+
+export class CompiledNetwork {
+  readonly circuit: Circuit;
+  readonly nodeCount: number;
+  readonly branchCount: number;
+  /** Per node: 1 when it has a path to the reference (its voltage is meaningful). */
+  readonly live: Uint8Array;
+  /** Node voltages of the last solve, V (NaN for dead nodes). Overwritten by the next solve. */
+  readonly voltageRe: Float64Array;
+  readonly voltageIm: Float64Array;
+  /** Admittance each load branch was given in the last solve, S. */
+  readonly admittanceRe: Float64Array;
+  readonly admittanceIm: Float64Array;
+  /** Complex power of each branch at its nominal voltage, VA; callers may overwrite between solves. */
+  readonly powerRe: Float64Array;
+  readonly powerIm: Float64Array;
+  /** Iterations and last voltage change (fraction of base) of the last solve. */
+  iterations = 0;
+  lastChange = 0;
+
+  private readonly kind: Int8Array;
+  private readonly unknownOf: Int32Array;
+  private readonly nodeOfUnknown: Int32Array;
+  private readonly pattern: SparsePattern;
+  private readonly baseRe: Float64Array;
+  private readonly baseIm: Float64Array;
+  private readonly baseRhsRe: Float64Array;
+  private readonly baseRhsIm: Float64Array;
+  private readonly workRe: Float64Array;
+  private readonly workIm: Float64Array;
+  private readonly rhsRe: Float64Array;
+  private readonly rhsIm: Float64Array;
+  private readonly xRe: Float64Array;
+  private readonly xIm: Float64Array;
+  private readonly previousRe: Float64Array;
+  private readonly previousIm: Float64Array;
+  private readonly diagonalSlots: Int32Array;
+  // Per branch: nodes, the four stamp slots (-1 when that end is not an unknown), model.
+  private readonly bFrom: Int32Array;
+  private readonly bTo: Int32Array;
+  private readonly bSlots: Int32Array;
+  private readonly bActive: Uint8Array;
+  private readonly vNominal: Float64Array;
+  private readonly zipZ: Float64Array;
+  private readonly zipI: Float64Array;
+  private readonly zipP: Float64Array;
+  private readonly allImpedance: boolean;
+
+  constructor(circuit: Circuit) {
+    this.circuit = circuit;
+    const n = circuit.nodeNames.length;
+    this.nodeCount = n;
+    this.branchCount = circuit.branches.length;
+    const m = this.branchCount;
+    this.powerRe = new Float64Array(m);
+    this.powerIm = new Float64Array(m);
+    this.vNominal = new Float64Array(m);
+    this.zipZ = new Float64Array(m);
+    this.zipI = new Float64Array(m);
+    this.zipP = new Float64Array(m);
+    this.bFrom = new Int32Array(m);
+    this.bTo = new Int32Array(m);
+    let allImpedance = true;
+    for (let k = 0; k < m; k++) {
+      const b = circuit.branches[k]!;
+      this.powerRe[k] = b.sNominal.re;
+      this.powerIm[k] = b.sNominal.im;
+      this.vNominal[k] = b.vNominal;
+      this.zipZ[k] = b.zip.z;
+      this.zipI[k] = b.zip.i;
+      this.zipP[k] = b.zip.p;
+      this.bFrom[k] = b.from;
+      this.bTo[k] = b.to;
+      if (b.zip.z !== 1) allImpedance = false;
+    }
+    this.allImpedance = allImpedance;
+
+    // Which nodes reach the reference through something that conducts.
+    this.live = reachable(circuit);
+    // Ideal EMFs fix their nodes; the rest of the live nodes are unknowns.
+    this.kind = new Int8Array(n);
+    this.voltageRe = new Float64Array(n).fill(Number.NaN);
+    this.voltageIm = new Float64Array(n).fill(Number.NaN);
+    for (let v = 0; v < n; v++) if (this.live[v]) this.kind[v] = NODE_FREE;
+    for (const s of circuit.sources) {
+      if (s.admittance) continue;
+      const base = s.minus === REFERENCE ? { re: 0, im: 0 } : this.kind[s.minus] === NODE_FIXED ? { re: this.voltageRe[s.minus]!, im: this.voltageIm[s.minus]! } : null;
+      if (!base || this.kind[s.plus] === NODE_FIXED)
+        throw new RangeError('compileNetwork: an ideal EMF must hang from the reference or from a node an earlier ideal EMF fixes, and fix a node only once');
+      this.kind[s.plus] = NODE_FIXED;
+      this.voltageRe[s.plus] = base.re + s.emf.re;
+      this.voltageIm[s.plus] = base.im + s.emf.im;
+    }
+    this.unknownOf = new Int32Array(n).fill(-1);
+    const nodeOfUnknown: number[] = [];
+    for (let v = 0; v < n; v++) if (this.kind[v] === NODE_FREE) this.unknownOf[v] = nodeOfUnknown.push(v) - 1;
+    this.nodeOfUnknown = new Int32Array(nodeOfUnknown);
+    const size = nodeOfUnknown.length;
+
+    const pairs: [number, number][] = [];
+    const u = (v: number) => (v === REFERENCE ? -1 : this.unknownOf[v]!);
+    const pair = (a: number, b: number) => {
+      const i = u(a);
+      const j = u(b);
+      if (i >= 0 && j >= 0) pairs.push([i, j]);
+    };
+    for (const e of circuit.elements) pair(e.from, e.to);
+    for (const s of circuit.sources) if (s.admittance) pair(s.plus, s.minus);
+    this.bActive = new Uint8Array(m);
+    circuit.branches.forEach((b, k) => {
+      const fromLive = b.from === REFERENCE || this.live[b.from] === 1;
+      const toLive = b.to === REFERENCE || this.live[b.to] === 1;
+      if (fromLive && toLive) {
+        this.bActive[k] = 1;
+        pair(b.from, b.to);
+      }
+    });
+    this.pattern = analysePattern(size, pairs);
+    const p = this.pattern;
+    this.diagonalSlots = new Int32Array(size);
+    for (let i = 0; i < size; i++) this.diagonalSlots[i] = p.slotOf(i, i);
+
+    // Fixed part of the matrix and right-hand side.
+    this.baseRe = new Float64Array(p.slotCount);
+    this.baseIm = new Float64Array(p.slotCount);
+    this.baseRhsRe = new Float64Array(size);
+    this.baseRhsIm = new Float64Array(size);
+    const stampFixed = (a: number, b: number, y: ComplexValue) => {
+      const i = u(a);
+      const j = u(b);
+      if (i >= 0) {
+        const d = p.slotOf(i, i);
+        this.baseRe[d] = this.baseRe[d]! + (y.re);
+        this.baseIm[d] = this.baseIm[d]! + (y.im);
+        if (j >= 0) {
+          const ij = p.slotOf(i, j);
+          const ji = p.slotOf(j, i);
+          this.baseRe[ij] = this.baseRe[ij]! - (y.re);
+          this.baseIm[ij] = this.baseIm[ij]! - (y.im);
+          this.baseRe[ji] = this.baseRe[ji]! - (y.re);
+          this.baseIm[ji] = this.baseIm[ji]! - (y.im);
+        } else if (b !== REFERENCE && this.kind[b] === NODE_FIXED) this.addRhs(i, y, this.voltageRe[b]!, this.voltageIm[b]!);
+      }
+      if (j >= 0) {
+        const d = p.slotOf(j, j);
+        this.baseRe[d] = this.baseRe[d]! + (y.re);
+        this.baseIm[d] = this.baseIm[d]! + (y.im);
+        if (i < 0 && a !== REFERENCE && this.kind[a] === NODE_FIXED) this.addRhs(j, y, this.voltageRe[a]!, this.voltageIm[a]!);
+      }
+    };
+    for (const e of circuit.elements) stampFixed(e.from, e.to, e.admittance);
+    for (const s of circuit.sources) {
+      if (!s.admittance) continue;
+      stampFixed(s.plus, s.minus, s.admittance);
+      // Norton: Y·E injected into plus, drawn from minus.
+      const jr = s.admittance.re * s.emf.re - s.admittance.im * s.emf.im;
+      const ji = s.admittance.re * s.emf.im + s.admittance.im * s.emf.re;
+      const ip = u(s.plus);
+      const im = u(s.minus);
+      if (ip >= 0) {
+        this.baseRhsRe[ip] = this.baseRhsRe[ip]! + (jr);
+        this.baseRhsIm[ip] = this.baseRhsIm[ip]! + (ji);
+      }
+      if (im >= 0) {
+        this.baseRhsRe[im] = this.baseRhsRe[im]! - (jr);
+        this.baseRhsIm[im] = this.baseRhsIm[im]! - (ji);
+      }
+    }
+    this.bSlots = new Int32Array(4 * m).fill(-1);
+    for (let k = 0; k < m; k++) {
+      if (!this.bActive[k]) continue;
+      const i = u(this.bFrom[k]!);
+      const j = u(this.bTo[k]!);
+      if (i >= 0) this.bSlots[4 * k] = p.slotOf(i, i);
+      if (j >= 0) this.bSlots[4 * k + 1] = p.slotOf(j, j);
+      if (i >= 0 && j >= 0) {
+        this.bSlots[4 * k + 2] = p.slotOf(i, j);
+        this.bSlots[4 * k + 3] = p.slotOf(j, i);
+      }
+    }
+    this.workRe = new Float64Array(p.slotCount);
+    this.workIm = new Float64Array(p.slotCount);
+    this.rhsRe = new Float64Array(size);
+    this.rhsIm = new Float64Array(size);
+    this.xRe = new Float64Array(size);
+    this.xIm = new Float64Array(size);
+    this.previousRe = new Float64Array(size);
+    this.previousIm = new Float64Array(size);
+    this.admittanceRe = new Float64Array(m);
+    this.admittanceIm = new Float64Array(m);
+  }
+
+  /** Number of unknowns the linear solves work on. */
+  get unknownCount(): number {
+    return this.pattern.size;
+  }
+
+  private addRhs(i: number, y: ComplexValue, vr: number, vi: number): void {
+    this.baseRhsRe[i] = this.baseRhsRe[i]! + (y.re * vr - y.im * vi);
+    this.baseRhsIm[i] = this.baseRhsIm[i]! + (y.re * vi + y.im * vr);
+  }
+
+  /** True when branch k has both terminals live (it carries current). */
+  isBranchActive(k: number): boolean {
+    return this.bActive[k] === 1;
+  }
+
+  /** Voltage across branch k (from − to) in the last solve; 0 when inactive. */
+  branchVoltageRe(k: number): number {
+    return this.nodeRe(this.bFrom[k]!) - this.nodeRe(this.bTo[k]!);
+  }
+  branchVoltageIm(k: number): number {
+    return this.nodeIm(this.bFrom[k]!) - this.nodeIm(this.bTo[k]!);
+  }
+  private nodeRe(v: number): number {
+    return v === REFERENCE ? 0 : this.voltageRe[v]!;
+  }
+  private nodeIm(v: number): number {
+    return v === REFERENCE ? 0 : this.voltageIm[v]!;
+  }
+
+  /** Sets every branch admittance to what it draws at voltage magnitude (per branch) or nominal. */
+  private updateAdmittances(atNominal: boolean, threshold: number): void {
+    for (let k = 0; k < this.branchCount; k++) {
+      const v0 = this.vNominal[k]!;
+      let v = v0;
+      if (!atNominal) v = this.bActive[k] ? Math.hypot(this.branchVoltageRe(k), this.branchVoltageIm(k)) : 0;
+      const ratio = v0 / Math.max(v, threshold * v0);
+      const factor = (this.zipZ[k]! + this.zipI[k]! * ratio + this.zipP[k]! * ratio * ratio) / (v0 * v0);
+      this.admittanceRe[k] = this.powerRe[k]! * factor;
+      this.admittanceIm[k] = -this.powerIm[k]! * factor;
+    }
+  }
+
+  /**
+   * One linear solve with the present branch admittances (`admittanceRe/Im`):
+   * fills the node voltages. Public so batch callers can set admittances directly.
+   * @throws {NumericalError} when the network is singular.
+   */
+  solveLinear(): void {
+    const p = this.pattern;
+    const re = this.workRe;
+    const im = this.workIm;
+    this.assemble(re, im, this.rhsRe, this.rhsIm);
+    let scale = 0;
+    for (let i = 0; i < p.size; i++) {
+      const d = this.diagonalSlots[i]!;
+      const size = Math.abs(re[d]!) + Math.abs(im[d]!);
+      if (size > scale) scale = size;
+    }
+    const failed = factorInPlace(p, re, im, SPARSE_PIVOT_FLOOR, scale);
+    if (failed >= 0) this.solveDense();
+    else solveFactored(p, re, im, this.rhsRe, this.rhsIm, this.xRe, this.xIm);
+    for (let i = 0; i < p.size; i++) {
+      const v = this.nodeOfUnknown[i]!;
+      this.voltageRe[v] = this.xRe[i]!;
+      this.voltageIm[v] = this.xIm[i]!;
+    }
+  }
+
+  private assemble(re: Float64Array, im: Float64Array, rhsRe: Float64Array, rhsIm: Float64Array): void {
+    re.set(this.baseRe);
+    im.set(this.baseIm);
+    rhsRe.set(this.baseRhsRe);
+    rhsIm.set(this.baseRhsIm);
+    const slots = this.bSlots;
+    for (let k = 0; k < this.branchCount; k++) {
+      if (!this.bActive[k]) continue;
+      const yr = this.admittanceRe[k]!;
+      const yi = this.admittanceIm[k]!;
+      const ii = slots[4 * k]!;
+      const jj = slots[4 * k + 1]!;
+      if (ii >= 0) {
+        re[ii] = re[ii]! + (yr);
+        im[ii] = im[ii]! + (yi);
+      }
+      if (jj >= 0) {
+        re[jj] = re[jj]! + (yr);
+        im[jj] = im[jj]! + (yi);
+      }
+      const ij = slots[4 * k + 2]!;
+      if (ij >= 0) {
+        const ji = slots[4 * k + 3]!;
+        re[ij] = re[ij]! - (yr);
+        im[ij] = im[ij]! - (yi);
+        re[ji] = re[ji]! - (yr);
+        im[ji] = im[ji]! - (yi);
+      } else {
+        // One end is fixed (or the reference): its known voltage moves to the right-hand side.
+        const from = this.bFrom[k]!;
+        const to = this.bTo[k]!;
+        if (ii >= 0 && to !== REFERENCE && this.kind[to] === NODE_FIXED) {
+          const i = this.unknownOf[from]!;
+          rhsRe[i] = rhsRe[i]! + (yr * this.voltageRe[to]! - yi * this.voltageIm[to]!);
+          rhsIm[i] = rhsIm[i]! + (yr * this.voltageIm[to]! + yi * this.voltageRe[to]!);
+        } else if (jj >= 0 && from !== REFERENCE && this.kind[from] === NODE_FIXED) {
+          const j = this.unknownOf[to]!;
+          rhsRe[j] = rhsRe[j]! + (yr * this.voltageRe[from]! - yi * this.voltageIm[from]!);
+          rhsIm[j] = rhsIm[j]! + (yr * this.voltageIm[from]! + yi * this.voltageRe[from]!);
+        }
+      }
+    }
+  }
+
+  /** The dense pivoted LU on the same equations: for near-singular pivots, and to name the culprit node. */
+  private solveDense(): void {
+    const p = this.pattern;
+    const n = p.size;
+    const re = new Float64Array(p.slotCount);
+    const im = new Float64Array(p.slotCount);
+    const rhsRe = new Float64Array(n);
+    const rhsIm = new Float64Array(n);
+    this.assemble(re, im, rhsRe, rhsIm);
+    const a: ComplexValue[][] = Array.from({ length: n }, (_, i) =>
+      Array.from({ length: n }, (_, j) => {
+        const s = p.slotOf(i, j);
+        return s < 0 ? { re: 0, im: 0 } : { re: re[s]!, im: im[s]! };
+      }),
+    );
+    const b = Array.from({ length: n }, (_, i) => ({ re: rhsRe[i]!, im: rhsIm[i]! }));
+    const result = solveComplexSystem(a, b);
+    if (!result.ok) {
+      const node = this.nodeOfUnknown[leastDeterminedUnknown(a)];
+      const what = node === undefined ? 'a source terminal' : this.circuit.nodeNames[node];
+      throw new NumericalError(
+        'singular',
+        `the network has no unique solution: the voltage of ${what} is not fixed — the admittances meeting there cancel (series resonance of L and C) or form a loop of ideal sources`,
+      );
+    }
+    result.x.forEach((x, i) => {
+      this.xRe[i] = x.re;
+      this.xIm[i] = x.im;
+    });
+  }
+
+  /**
+   * Solves the network: the fixed-point iteration over the load admittances
+   * (a single linear solve when every branch is constant impedance). Results are
+   * left in `voltageRe/Im`, `admittanceRe/Im`, `iterations`, `lastChange`.
+   * @throws {NumericalError} for a singular network or an iteration that does not settle.
+   */
+  solve(solveOptions?: SolveOptions): void {
+    const options = resolveSolveOptions(solveOptions);
+    const threshold = options.lowVoltageThreshold;
+    this.updateAdmittances(true, threshold);
+    this.solveLinear();
+    let iterations = 1;
+    let lastChange = 0;
+    if (!this.allImpedance) {
+      const vBase = this.circuit.voltageBase;
+      const size = this.pattern.size;
+      const prevRe = this.previousRe;
+      const prevIm = this.previousIm;
+      let previousChange = 0;
+      for (;;) {
+        for (let i = 0; i < size; i++) {
+          prevRe[i] = this.xRe[i]!;
+          prevIm[i] = this.xIm[i]!;
+        }
+        this.updateAdmittances(false, threshold);
+        this.solveLinear();
+        iterations++;
+        let change = 0;
+        for (let i = 0; i < size; i++) {
+          const d = Math.hypot(this.xRe[i]! - prevRe[i]!, this.xIm[i]! - prevIm[i]!);
+          if (d > change || Number.isNaN(d)) change = d;
+        }
+        lastChange = change / vBase;
+        if (!Number.isFinite(lastChange)) throw new NumericalError('non-finite', `the load iteration produced non-finite voltages at iteration ${iterations}`);
+        // A fixed-point step that shrinks by `ratio` each time leaves an error of about
+        // change·ratio/(1 − ratio): stop on that estimate, not on the step alone, so slowly
+        // contracting boards are as accurate as fast ones. The floor is round-off.
+        const ratio = previousChange > 0 ? lastChange / previousChange : 0;
+        const settled = lastChange <= options.tolerance * Math.max(0, 1 - ratio) || lastChange <= ROUND_OFF_CHANGE;
+        previousChange = lastChange;
+        if (settled) break;
+        if (iterations >= options.maxIterations)
+          throw new NumericalError(
+            'no-convergence',
+            `the voltage-dependent loads did not settle after ${iterations} iterations (last voltage change ${(lastChange * 100).toPrecision(3)} % of nominal, tolerance ${(options.tolerance * 100).toPrecision(3)} %): the loads may exceed what the supply can deliver`,
+          );
+      }
+    }
+    for (let i = 0; i < this.pattern.size; i++)
+      if (!Number.isFinite(this.xRe[i]!) || !Number.isFinite(this.xIm[i]!))
+        throw new NumericalError('non-finite', 'the solve produced a non-finite voltage; check for extreme impedance values');
+    this.iterations = iterations;
+    this.lastChange = lastChange;
+  }
+
+  /**
+   * Current each source delivers out of its `plus` terminal in the last solve, A.
+   * Norton sources from their own equation; ideal ones by KCL at the node they fix.
+   */
+  sourceCurrents(): ComplexValue[] {
+    const c = this.circuit;
+    const v = (node: number) => (node === REFERENCE ? { re: 0, im: 0 } : { re: this.voltageRe[node]!, im: this.voltageIm[node]! });
+    const out = new Array<ComplexValue>(c.sources.length);
+    const netOut = new Map<number, { re: number; im: number }>();
+    const needKcl = new Set<number>();
+    c.sources.forEach((s) => {
+      if (!s.admittance) needKcl.add(s.plus);
+    });
+    const leave = (node: number, re: number, im: number) => {
+      if (!needKcl.has(node)) return;
+      const t = netOut.get(node) ?? { re: 0, im: 0 };
+      t.re += re;
+      t.im += im;
+      netOut.set(node, t);
+    };
+    const through = (from: number, to: number, yr: number, yi: number) => {
+      const a = v(from);
+      const b = v(to);
+      const dr = a.re - b.re;
+      const di = a.im - b.im;
+      const ir = yr * dr - yi * di;
+      const ii = yr * di + yi * dr;
+      leave(from, ir, ii);
+      leave(to, -ir, -ii);
+    };
+    for (const e of c.elements) if (this.isLiveEnd(e.from) && this.isLiveEnd(e.to)) through(e.from, e.to, e.admittance.re, e.admittance.im);
+    c.branches.forEach((b, k) => {
+      if (this.bActive[k]) through(b.from, b.to, this.admittanceRe[k]!, this.admittanceIm[k]!);
+    });
+    c.sources.forEach((s, k) => {
+      if (!s.admittance) return;
+      const a = v(s.plus);
+      const b = v(s.minus);
+      const y = s.admittance;
+      const dr = s.emf.re - (a.re - b.re);
+      const di = s.emf.im - (a.im - b.im);
+      const i = { re: y.re * dr - y.im * di, im: y.re * di + y.im * dr };
+      out[k] = i;
+      leave(s.plus, -i.re, -i.im);
+      leave(s.minus, i.re, i.im);
+    });
+    // Ideal sources: the ones fixed last hang from the earlier ones, so settle them first.
+    for (let k = c.sources.length - 1; k >= 0; k--) {
+      const s = c.sources[k]!;
+      if (s.admittance) continue;
+      const i = netOut.get(s.plus) ?? { re: 0, im: 0 };
+      out[k] = { re: i.re, im: i.im };
+      leave(s.minus, i.re, i.im);
+    }
+    return out;
+  }
+
+  private isLiveEnd(node: number): boolean {
+    return node === REFERENCE || this.live[node] === 1;
+  }
+}
+
+/** Nodes with a path of conducting elements, sources or non-zero-power branches to the reference. */
+function reachable(circuit: Circuit): Uint8Array {
+  const n = circuit.nodeNames.length;
+  const adjacency: number[][] = [];
+  for (let v = 0; v <= n; v++) adjacency.push([]);
+  const at = (node: number) => (node === REFERENCE ? n : node);
+  const link = (a: number, b: number) => {
+    adjacency[at(a)]!.push(at(b));
+    adjacency[at(b)]!.push(at(a));
+  };
+  for (const e of circuit.elements) link(e.from, e.to);
+  for (const s of circuit.sources) link(s.plus, s.minus);
+  for (const b of circuit.branches) if (b.sNominal.re !== 0 || b.sNominal.im !== 0) link(b.from, b.to);
+  const seen = new Uint8Array(n + 1);
+  const stack = [n];
+  seen[n] = 1;
+  while (stack.length) {
+    for (const next of adjacency[stack.pop()!]!) {
+      if (!seen[next]) {
+        seen[next] = 1;
+        stack.push(next);
+      }
+    }
+  }
+  return seen.subarray(0, n);
+}
+
+/** Compiles a circuit for repeated solves. */
+export function compileCircuit(circuit: Circuit): CompiledNetwork {
+  return new CompiledNetwork(circuit);
+}
