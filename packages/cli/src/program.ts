@@ -8,6 +8,7 @@ import { runCorrect, type CorrectCommandOptions } from './commands/correct.js';
 import { runProfile, type ProfileCommandOptions } from './commands/profile.js';
 import { DIAGRAM_VIEWS, runDiagram, type DiagramCommandOptions } from './commands/diagram.js';
 import { runReport, type ReportCommandOptions } from './commands/report.js';
+import { runCheck, type CheckCommandOptions } from './commands/check.js';
 import packageJson from '../package.json' with { type: 'json' };
 
 export const VERSION: string = packageJson.version;
@@ -70,6 +71,18 @@ The report includes the correction study when the board file has a "correction:"
 Examples:
   trivar report examples/riverside-cold-store.yaml -o cold-store.html
   trivar report examples/corner-bakery.yaml --format md -o bakery.md   (writes bakery-*.svg beside it)`;
+
+const CHECK_EXAMPLES = `
+The figures file (YAML or JSON) lists the capacitors you chose and, if you like, what you expect:
+  targetPf: 0.95
+  capacitors:
+    - { branch: A-B, kvar: 16 }              # nameplate kvar (at ratedV, default the branch's nominal voltage)
+    - { branch: C-N, uF: 250 }               # or the capacitance
+  expected: { pf: 0.95, neutralA: 20, lines: { A: { currentA: 170, pf: 0.95 } } }
+
+Examples:
+  trivar check examples/riverside-cold-store.yaml examples/hand-figures/riverside-cold-store.yaml
+  trivar check board.yaml my-figures.yaml --json`;
 
 function numberIn(min: number, max: number, what: string) {
   return (text: string): number => {
@@ -176,6 +189,17 @@ export function createProgram(io: CliIo, outcome: RunOutcome = { exitCode: EXIT.
     .addHelpText('after', REPORT_EXAMPLES)
     .action(async (board: string, opts: ReportCommandOptions) => {
       await runReport(board, opts, io, `Made with trivar ${VERSION}. Figures come from the model entered; check them against measurements and local codes.`);
+    });
+
+  program
+    .command('check')
+    .description('check a hand calculation: solve the board with the capacitors you chose and explain each difference from the textbook figures')
+    .argument('<board>', 'board file (YAML or JSON), or - for standard input')
+    .argument('<figures>', 'your hand figures (YAML or JSON): capacitors per phase or line pair, expected PF and currents')
+    .option('--json', 'print the full result as JSON instead of the report')
+    .addHelpText('after', CHECK_EXAMPLES)
+    .action(async (board: string, figures: string, opts: CheckCommandOptions) => {
+      await runCheck(board, figures, opts, io);
     });
 
   program

@@ -135,3 +135,11 @@ export type { ReportHtmlOptions } from './render/report/renderReportHtml.js';
 export { renderReportHtml } from './render/report/renderReportHtml.js';
 export type { MarkdownReport } from './render/report/renderReportMarkdown.js';
 export { renderReportMarkdown } from './render/report/renderReportMarkdown.js';
+
+// Checking hand calculations (trivar check)
+export type { HandFiguresSpec, HandCapacitorSpec, HandBranch } from './handCheck/handFiguresSpec.js';
+export { handFiguresSchema } from './handCheck/handFiguresSpec.js';
+export { parseHandFigures } from './handCheck/validateHandFigures.js';
+export type * from './handCheck/handCheckResult.js';
+export { checkHandFigures } from './handCheck/checkHandFigures.js';
+export { textbookWorking } from './handCheck/textbookWorking.js';

@@ -14,7 +14,7 @@ const ZIP_OF_MODEL: Record<string, ZipFractions> = {
 };
 
 /** Angle of each phase EMF for a balanced source, degrees. */
-function balancedAnglesDeg(system: BoardSpec['supply']['system'], sequence: 'ABC' | 'ACB'): number[] {
+export function balancedAnglesDeg(system: BoardSpec['supply']['system'], sequence: 'ABC' | 'ACB'): number[] {
   if (system === 'single-phase') return [0];
   if (system === 'split-phase') return [0, 180];
   return sequence === 'ABC' ? [0, -120, 120] : [0, 120, -120];
