@@ -137,13 +137,15 @@ export function createProgram(io: CliIo, outcome: RunOutcome = { exitCode: EXIT.
     .option('--allow-leading', 'let a line end up leading (default: never leading)')
     .option('--upper-pf <value>', 'do not correct beyond this lagging power factor', numberIn(0, 1, 'a power factor above 0 and at most 1'))
     .option('--light-load <fraction>', 'check the fixed part at this fraction of every load (0-1)', numberIn(-1e-12, 1, 'a fraction from 0 to 1'))
-    .addOption(new Option('--pattern <steps>', 'switched-step ratios of the bank').choices(['fixed', '1:1:1', '1:2:2', '1:2:4']))
+    .addOption(new Option('--practice <region>', 'regional practice: typical catalogue, voltage margin, discharge time').choices(['iec', 'north-american']))
+    .addOption(new Option('--outputs <n>', 'switched outputs of the bank controller').choices(['6', '8', '12']))
+    .option('--ct <amps>', 'primary of the controller current transformer, A', numberIn(0, 1e6, 'a current above 0 A'))
     .option('--json', 'print the full report as JSON instead of the text report')
     .addOption(maxInputOption())
     .addHelpText('after', CORRECT_EXAMPLES)
     .action(async (board: string, opts: CorrectCommandOptions) => {
       const report = await runCorrect(board, opts, io);
-      const missed = report.status === 'infeasible' || report.status === 'misses-target-with-available-units';
+      const missed = report.status === 'infeasible' || report.status === 'misses-target-with-available-units' || report.status === 'no-suitable-units';
       if (missed) outcome.exitCode = EXIT.targetNotMet;
     });
 

@@ -68,7 +68,9 @@ export type {
   CapacitanceToleranceSpec,
   Arrangement,
   TargetDefinition,
-  StepPattern,
+  Practice,
+  ControllerSpec,
+  BalanceTargetSpec,
 } from './correction/correctionSpec.js';
 export { correctionSpecSchema } from './correction/correctionSpec.js';
 export type { CorrectionSpecValidation } from './correction/validateCorrectionSpec.js';
@@ -80,7 +82,9 @@ export type { EquipmentGroup, EquipmentBranch, EquipmentTerminal, BranchSlot, Ad
 export { addCorrectionEquipment } from './correction/equipment.js';
 export type { AppliedConditions, CapacitorOutput } from './correction/capacitorOutput.js';
 export { capacitorOutput } from './correction/capacitorOutput.js';
-export { TYPICAL_CAPACITOR_UNITS } from './correction/typicalCapacitorUnits.js';
+export type { CatalogueUnit, TypicalCatalogue } from './correction/unitCatalogues.js';
+export { TYPICAL_CATALOGUES } from './correction/unitCatalogues.js';
+export { controllerSettings, responseThresholdA, standardCtPrimaryA } from './correction/controllerSettings.js';
 export { scaleBoardLoads } from './correction/scaleBoardLoads.js';
 export type { StarBankOptions } from './correction/sizeStarBank.js';
 export { sizeStarBank } from './correction/sizeStarBank.js';
@@ -89,7 +93,7 @@ export { sizeDeltaBank } from './correction/sizeDeltaBank.js';
 export type { CompensatorOptions } from './correction/sizeBalancingCompensator.js';
 export { sizeBalancingCompensator } from './correction/sizeBalancingCompensator.js';
 export type { SelectBankUnitsOptions } from './correction/selectBankUnits.js';
-export { selectBankUnits } from './correction/selectBankUnits.js';
+export { selectBankUnits, defaultPractice } from './correction/selectBankUnits.js';
 export type { VerifyCorrectionOptions } from './correction/verifyCorrection.js';
 export { verifyCorrection } from './correction/verifyCorrection.js';
 export { correctBoard } from './correction/correctBoard.js';

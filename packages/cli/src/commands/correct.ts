@@ -13,7 +13,9 @@ export interface CorrectCommandOptions {
   readonly allowLeading?: boolean;
   readonly upperPf?: number;
   readonly lightLoad?: number;
-  readonly pattern?: string;
+  readonly outputs?: string;
+  readonly practice?: string;
+  readonly ct?: number;
   readonly maxInputMb?: number;
 }
 
@@ -28,7 +30,11 @@ function studySpec(fromFile: Record<string, unknown> | undefined, o: CorrectComm
   if (o.upperPf !== undefined) target.maxLaggingPf = o.upperPf;
   if (Object.keys(target).length) spec.target = target;
   if (o.lightLoad !== undefined) spec.lightLoad = { ...((spec.lightLoad as object | undefined) ?? {}), fraction: o.lightLoad };
-  if (o.pattern !== undefined) spec.bank = { ...((spec.bank as object | undefined) ?? {}), pattern: o.pattern };
+  if (o.practice !== undefined) spec.practice = o.practice;
+  const controller: Record<string, unknown> = { ...((spec.controller as Record<string, unknown> | undefined) ?? {}) };
+  if (o.outputs !== undefined) controller.outputs = Number(o.outputs);
+  if (o.ct !== undefined) controller.ctPrimaryA = o.ct;
+  if (Object.keys(controller).length) spec.controller = controller;
   return spec;
 }
 

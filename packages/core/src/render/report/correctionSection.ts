@@ -21,28 +21,28 @@ function equipmentTable(report: CorrectionReport): ReportBlock | null {
   if (!sel) return null;
   return {
     kind: 'table',
-    caption: `Equipment to install (${sel.installedUnits} units, ${fixed(sel.installedKvar, 1)} kvar nameplate; ${sel.catalogueNote})`,
+    caption: `Equipment to install (${sel.units} units, ${fixed(sel.deliveredKvar, 1)} kvar delivered, ${fixed(sel.nameplateKvar, 1)} kvar nameplate; ${sel.catalogueNote})`,
     columns: [
-      { label: 'Branch' },
+      { label: 'Step' },
+      { label: 'Branches' },
       { label: 'Unit' },
-      { label: 'Fixed', align: 'right' },
-      { label: 'Steps', align: 'right' },
+      { label: 'Units', align: 'right' },
       { label: 'kvar nameplate', align: 'right' },
-      { label: 'µF in service', align: 'right' },
-      { label: 'kvar at applied V', align: 'right' },
-      { label: 'A', align: 'right' },
+      { label: 'kvar delivered', align: 'right' },
+      { label: 'µF per branch', align: 'right' },
+      { label: 'C/k A', align: 'right' },
     ],
-    rows: sel.selections.map((s) => [
-      s.branch,
-      s.unit ? `${s.unit.name} (${fixed(s.unit.ratedKvar, 1)} kvar ${fixed(s.unit.ratedV, 0)} V)` : 'none',
-      String(s.fixedUnits),
-      s.stepUnits.length ? s.stepUnits.join(' + ') : '—',
-      fixed(s.installedKvar, 1),
-      fixed(s.designCapacitanceUF, 0),
-      fixed(s.designKvarAtAppliedV, 2),
-      fixed(s.designCurrentA, 1),
+    rows: sel.steps.map((s) => [
+      s.output === null ? 'fixed' : String(s.output),
+      s.branches.join(' '),
+      `${s.unit.name} (${fixed(s.unit.ratedKvar, 1)} kvar ${fixed(s.unit.ratedV, 0)} V)`,
+      String(s.units),
+      fixed(s.nameplateKvar, 1),
+      fixed(s.deliveredKvar, 2),
+      fixed(s.capacitancePerBranchUF, 0),
+      s.output === null ? '—' : fixed(s.responseThresholdA, 3),
     ]),
-    note: `Step pattern ${sel.pattern}; capacitance tolerance −${sel.capacitanceTolerance.minusPercent} % / +${sel.capacitanceTolerance.plusPercent} %; units rated with a ${sel.voltageMarginPercent} % voltage margin.`,
+    note: `Capacitance tolerance −${sel.capacitanceTolerance.minusPercent} % / +${sel.capacitanceTolerance.plusPercent} %; units rated ${sel.voltageMarginPercent} % above the nominal voltage (${sel.catalogueTitle}).`,
   };
 }
 
