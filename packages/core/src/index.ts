@@ -116,7 +116,7 @@ export { createRowReader } from './profile/readIntervalRows.js';
 export type { GapFill, GapReading, SequenceReport, IntervalTable } from './profile/checkIntervalSequence.js';
 export { GAP_FILLS, checkIntervalSequence, concatRawIntervals } from './profile/checkIntervalSequence.js';
 export { isKnownTimeZone } from './profile/zoneClock.js';
-export type { ControllerStep, ControllerSettings, StepChannel } from './profile/bankController.js';
+export type { SwitchedStep, SwitchingSettings, StepChannel } from './profile/bankController.js';
 export { createBankController } from './profile/bankController.js';
 export { simulateBank } from './profile/simulateBank.js';
 export type { MonthReading } from './profile/monthlyBilling.js';

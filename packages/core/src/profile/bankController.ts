@@ -16,13 +16,13 @@ import type { PhaseId } from '../board/boardModel.js';
 
 export type StepChannel = 'ABC' | PhaseId;
 
-export interface ControllerStep {
+export interface SwitchedStep {
   /** Output at nominal voltage, kvar (the channel's total: all three phases for 'ABC'). */
   readonly kvar: number;
   readonly channel: StepChannel;
 }
 
-export interface ControllerSettings {
+export interface SwitchingSettings {
   readonly targetPf: number;
   readonly responseShare: number;
   readonly delaySeconds: number;
@@ -36,7 +36,7 @@ export interface ChannelReading {
 }
 
 export interface BankController {
-  readonly steps: readonly ControllerStep[];
+  readonly steps: readonly SwitchedStep[];
   /** 1 where a step is connected now. */
   readonly on: Uint8Array;
   /** Closings per step so far (each is one switching operation of the capacitor and its contactor). */
@@ -51,7 +51,7 @@ export interface BankController {
   interrupt(): void;
 }
 
-export function createBankController(steps: readonly ControllerStep[], settings: ControllerSettings): BankController {
+export function createBankController(steps: readonly SwitchedStep[], settings: SwitchingSettings): BankController {
   const n = steps.length;
   const on = new Uint8Array(n);
   const closings = new Int32Array(n);

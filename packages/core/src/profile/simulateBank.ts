@@ -8,7 +8,7 @@
 import type { Board, Terminal } from '../board/boardModel.js';
 import { compileBatchNetwork, edgeIndex, edgePowersAt, type BatchEdge, type DriverColumns, type DriverSpec } from './batchNetwork.js';
 import { allocateFigures, createBatchKernel, recordInterval, type BatchSolveOptions, type IntervalFigures } from './solveBatch.js';
-import { createBankController, type ControllerSettings, type ControllerStep, type StepChannel } from './bankController.js';
+import { createBankController, type SwitchingSettings, type SwitchedStep, type StepChannel } from './bankController.js';
 
 export interface BankRun {
   readonly figures: IntervalFigures;
@@ -38,8 +38,8 @@ export interface SimulateBankInput {
   readonly columns: DriverColumns;
   readonly utcMs: Float64Array;
   readonly intervalMs: number;
-  readonly steps: readonly ControllerStep[];
-  readonly settings: ControllerSettings;
+  readonly steps: readonly SwitchedStep[];
+  readonly settings: SwitchingSettings;
   readonly solve?: BatchSolveOptions;
 }
 

@@ -6,12 +6,12 @@
  * catalogue units (common practice, no source).
  */
 import type { Board } from '../board/boardModel.js';
-import type { ControllerStep } from './bankController.js';
+import type { SwitchedStep } from './bankController.js';
 import { percentilesOf } from './intervalStatistics.js';
 import type { IntervalFigures } from './solveBatch.js';
 
 export interface StepSizing {
-  readonly steps: readonly ControllerStep[];
+  readonly steps: readonly SwitchedStep[];
   /** Need at the cover percentile, kvar, per channel. */
   readonly needKvar: Readonly<Record<string, number>>;
 }
@@ -33,7 +33,7 @@ export function sizeBankSteps(
     }
     return percentilesOf(need, [options.coverShare])[0]!.value;
   };
-  const steps: ControllerStep[] = [];
+  const steps: SwitchedStep[] = [];
   const needKvar: Record<string, number> = {};
   if (options.perPhase && board.hasNeutral) {
     board.phases.forEach((p, k) => {

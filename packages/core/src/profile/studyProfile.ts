@@ -6,7 +6,7 @@
 import type { Board } from '../board/boardModel.js';
 import type { DriverColumns, DriverSpec } from './batchNetwork.js';
 import { compileBatchNetwork } from './batchNetwork.js';
-import type { ControllerStep } from './bankController.js';
+import type { SwitchedStep } from './bankController.js';
 import type { SequenceReport } from './checkIntervalSequence.js';
 import { maximumOf } from './intervalStatistics.js';
 import { PROFILE_DEFAULTS } from './profileDefaults.js';
@@ -161,7 +161,7 @@ export function studyProfile(input: ProfileStudyInput, options: ProfileStudyOpti
       delaySeconds: b?.delaySeconds ?? PROFILE_DEFAULTS.delaySeconds,
       reconnectSeconds: b?.reconnectSeconds ?? PROFILE_DEFAULTS.reconnectSeconds,
     };
-    let steps: readonly ControllerStep[];
+    let steps: readonly SwitchedStep[];
     let needKvar: Record<string, number> | null = null;
     if (b?.steps) steps = b.steps.map((s) => ({ kvar: s.kvar, channel: s.phase ?? 'ABC' }));
     else {
