@@ -143,6 +143,35 @@ const CASES: Case[] = [
     code: 3,
     says: [/kyyyy.*\.\.\./],
   },
+  // 10. extreme magnitudes name the field and the accepted range
+  { name: 'kW 1e308', args: () => ['solve', file('kw.yaml', board('  - { name: oven, connection: A-N, kW: 1e308, pf: 1 }'))], code: 3, says: [/loads\[0\]\.kW/, /from -100,000 to 100,000 kW/] },
+  { name: 'pf 1e-320', args: () => ['solve', file('pf.yaml', board('  - { name: oven, connection: A-N, kW: 1, pf: 1e-320 }'))], code: 3, says: [/loads\[0\]\.pf/, /from 0\.01 to 1/] },
+  {
+    name: 'transformer 1e300 kVA',
+    args: () => ['solve', file('kva.yaml', `supply: { system: three-phase-4wire, voltage: { lineToLine: 400 }, frequencyHz: 50, transformer: { kVA: 1e300, impedancePercent: 4, xOverR: 3 } }\nloads: [{ name: a, connection: A-N, kW: 1, pf: 1 }]\n`)],
+    code: 3,
+    says: [/supply\.transformer\.kVA/, /10,000 kVA/],
+  },
+  {
+    name: 'lineToLine 1e308 names the input field, not an output',
+    args: () => ['solve', file('ll.yaml', `supply: { system: three-phase-4wire, voltage: { lineToLine: 1e308 }, frequencyHz: 50 }\nloads: [{ name: a, connection: A-N, kW: 1, pf: 1 }]\n`)],
+    code: 3,
+    says: [/supply\.voltage\.lineToLine/, /from 10 to 1,000 V/],
+  },
+  // 11. schema and cross-field problems in one pass
+  {
+    name: 'a schema error and a duplicate name, listed together',
+    args: () => ['solve', file('two-rounds.yaml', `supply: { system: three-phase-4wire, voltage: { lineToLine: 400 }, frequencyHz: 45 }\nloads:\n  - { name: oven, connection: A-N, kW: 2, pf: 1 }\n  - { name: oven, connection: B-N, kW: 2 }\n`)],
+    code: 3,
+    says: [/supply\.frequencyHz/, /loads\[1\]\.name/, /loads\[1\]: expected exactly one rating/],
+  },
+  // 5. a __proto__ key is named, not dropped
+  {
+    name: 'perLoad __proto__',
+    args: () => ['correct', file('proto.yaml', `${oneLoad}correction: { arrangement: delta-bank, lightLoad: { fraction: 0.3, perLoad: { __proto__: 0 } } }\n`)],
+    code: 3,
+    says: [/correction\.lightLoad\.perLoad\.__proto__/],
+  },
 ];
 
 describe('hostile input: exit code, no stack trace, bounded memory, a message that names the field or file', () => {

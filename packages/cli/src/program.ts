@@ -6,6 +6,7 @@ import { runSolve } from './commands/solve.js';
 import { runSchema } from './commands/schema.js';
 import { runCorrect, type CorrectCommandOptions } from './commands/correct.js';
 import { runProfile, type ProfileCommandOptions } from './commands/profile.js';
+import { runRebalance, type RebalanceCommandOptions } from './commands/rebalance.js';
 import { DIAGRAM_VIEWS, runDiagram, type DiagramCommandOptions } from './commands/diagram.js';
 import { runReport, type ReportCommandOptions } from './commands/report.js';
 import { runCheck, type CheckCommandOptions } from './commands/check.js';
@@ -58,6 +59,46 @@ Examples:
 
 Exit codes: as for solve (3 also for interval data that cannot be read: every bad cell is named
 by row and column)`;
+const REBALANCE_EXAMPLES = `
+The study can also live in the board file under "rebalance:" (pins, load conditions, capacities;
+see trivar schema); options override it.
+
+Examples:
+  trivar rebalance examples/maple-court-flats.yaml
+  trivar rebalance examples/maple-court-flats.yaml --move-limit 3
+  trivar rebalance examples/maple-court-flats.yaml --near-best 2 --write flats-rebalanced.yaml
+  trivar rebalance board.yaml --aim neutral=1,largest-line=0.5 --json
+
+Exit codes: as for solve`;
+
+const AIM_NAMES: Record<string, string> = {
+  'largest-line': 'largestLine',
+  neutral: 'neutral',
+  'current-unbalance': 'currentUnbalance',
+  'voltage-unbalance': 'voltageUnbalance',
+};
+
+/** "neutral=2,largest-line" → { neutral: 2, largestLine: 1 }. */
+function parseAim(text: string): Record<string, number> {
+  const aim: Record<string, number> = {};
+  for (const part of text.split(',')) {
+    const [name = '', weight] = part.split('=').map((s) => s.trim());
+    const key = AIM_NAMES[name];
+    const w = weight === undefined ? 1 : Number(weight);
+    if (!key || !Number.isFinite(w) || w < 0)
+      throw new InvalidArgumentError(`expected figures from ${Object.keys(AIM_NAMES).join(', ')}, each optionally =weight (a number >= 0), separated by commas.`);
+    aim[key] = w;
+  }
+  return aim;
+}
+
+/** Any number: the study's schema checks the range and names the field. */
+function anyNumber(text: string): number {
+  const x = Number(text);
+  if (text.trim() === '' || !Number.isFinite(x)) throw new InvalidArgumentError('expected a number.');
+  return x;
+}
+
 const DIAGRAM_EXAMPLES = `
 Examples:
   trivar diagram examples/corner-bakery.yaml -o bakery-phasors.svg
@@ -167,6 +208,24 @@ export function createProgram(io: CliIo, outcome: RunOutcome = { exitCode: EXIT.
     .addHelpText('after', PROFILE_EXAMPLES)
     .action(async (board: string, opts: ProfileCommandOptions) => {
       await runProfile(board, opts, io);
+    });
+
+  program
+    .command('rebalance')
+    .description('find which circuits to move to which phase (fewest moves, proven bound) and re-solve the board')
+    .argument('<board>', 'board file (YAML or JSON), or - for standard input')
+    .option('--aim <figures>', 'what to make small: largest-line, neutral, current-unbalance, voltage-unbalance, each =weight (default largest-line,neutral)', parseAim)
+    .addOption(new Option('--combine <how>', 'over several load conditions: the worst one or the weighted mean').choices(['worst', 'weighted']))
+    .option('--move-limit <n>', 'move at most this many circuits', anyNumber)
+    .option('--near-best <percent>', 'fewest moves whose score is within this % of the best', anyNumber)
+    .option('--capacity <A>', 'largest current any line may carry, A', anyNumber)
+    .addOption(new Option('--method <how>', 'search: exact branch-and-bound, local search, or auto by board size').choices(['auto', 'exact', 'local-search']))
+    .option('--no-table', 'skip the table of the best score by moves allowed')
+    .option('--write <file>', 'save the board file with the moves made (never the input file)')
+    .option('--json', 'print the full report as JSON instead of the text report')
+    .addHelpText('after', REBALANCE_EXAMPLES)
+    .action(async (board: string, opts: RebalanceCommandOptions) => {
+      await runRebalance(board, opts, io);
     });
 
   program

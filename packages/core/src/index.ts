@@ -22,7 +22,7 @@ export type {
   ConnectionSpec,
   LoadModelName,
 } from './board/boardSchema.js';
-export { boardSchema } from './board/boardSchema.js';
+export { boardSchema, PHYSICAL_RANGES } from './board/boardSchema.js';
 export type { BoardValidation } from './board/validateBoard.js';
 export { validateBoard, parseBoard, readBoardText, parseBoardText } from './board/validateBoard.js';
 export { BOARD_TEXT_LIMITS } from './board/readBoardText.js';
@@ -125,6 +125,16 @@ export type { ProfileStudy, ProfileStudyInput, ProfileStudyOptions, ProfileResul
 export { studyProfile } from './profile/studyProfile.js';
 export type { ChartSeries, TimeChartInput, DurationChartInput } from './render/profileCharts.js';
 export { renderTimeChart, renderDurationChart } from './render/profileCharts.js';
+
+// Rebalancing (which circuits to move to which phase)
+export type { RebalanceSpec, AimSpec, AimFigure, LoadConditionSpec, PinSpec } from './rebalance/rebalanceSpec.js';
+export { rebalanceSpecSchema, AIM_FIGURES } from './rebalance/rebalanceSpec.js';
+export type { ConditionFigures, RebalanceObjective } from './rebalance/rebalanceObjective.js';
+export type { RebalanceOptions } from './rebalance/rebalanceBoard.js';
+export { rebalanceBoard } from './rebalance/rebalanceBoard.js';
+export type * from './rebalance/rebalanceResult.js';
+export { REBALANCE_CAUTIONS } from './rebalance/rebalanceWording.js';
+export { rewriteBoardText } from './rebalance/rewriteBoardText.js';
 
 // Drawings and reports (SVG/HTML/Markdown text; the CLI writes the files)
 export type { PhasorDiagramOptions } from './render/renderPhasorDiagram.js';

@@ -22,7 +22,8 @@ export function forTerminal<T>(value: T): T {
   if (Array.isArray(value)) return value.map((v) => forTerminal(v)) as T;
   if (value !== null && typeof value === 'object') {
     const copy: Record<string, unknown> = {};
-    for (const [k, v] of Object.entries(value)) copy[k] = forTerminal(v);
+    // Keys can be user text (load names): defined, not assigned, so "__proto__" stays an ordinary key.
+    for (const [k, v] of Object.entries(value)) Object.defineProperty(copy, k, { value: forTerminal(v), enumerable: true, writable: true, configurable: true });
     return copy as T;
   }
   return value;

@@ -3,9 +3,9 @@
  * `validateBoard` returns a result; `parseBoard` throws an `InputError`.
  */
 import { InputError, type InputIssue } from '../errors.js';
-import { inputIssuesFromZod } from '../_internal/zodIssues.js';
-import { boardSchema, type BoardSpec } from './boardSchema.js';
-import { BOARD_RULES } from './boardRules.js';
+import { allInputIssues } from '../_internal/zodIssues.js';
+import { boardSchema, feederSchema, loadSchema, supplySchema, type BoardSpec, type LoadSpec } from './boardSchema.js';
+import { BOARD_RULES, partialBoardIssues, type BoardParts } from './boardRules.js';
 import { readBoardText } from './readBoardText.js';
 
 export { readBoardText };
@@ -18,9 +18,29 @@ export type BoardValidation = { ok: true; board: BoardSpec } | { ok: false; issu
  */
 export function validateBoard(input: unknown): BoardValidation {
   const parsed = boardSchema.safeParse(input);
-  if (!parsed.success) return { ok: false, issues: inputIssuesFromZod(parsed.error.issues, input) };
-  const issues = BOARD_RULES.flatMap((rule) => rule(parsed.data));
-  return issues.length ? { ok: false, issues } : { ok: true, board: parsed.data };
+  const shapeIssues = allInputIssues(parsed.success ? [] : parsed.error.issues, input);
+  if (parsed.success && shapeIssues.length === 0) {
+    const issues = BOARD_RULES.flatMap((rule) => rule(parsed.data));
+    return issues.length ? { ok: false, issues } : { ok: true, board: parsed.data };
+  }
+  return { ok: false, issues: [...shapeIssues, ...partialBoardIssues(boardParts(input))] };
+}
+
+/** Each part of a board that passes the schema on its own (for the rules that can still run). */
+function boardParts(input: unknown): BoardParts {
+  const raw = (input !== null && typeof input === 'object' ? input : {}) as Record<string, unknown>;
+  const supply = supplySchema.safeParse(raw.supply);
+  const feeder = raw.feeder === undefined ? undefined : feederSchema.safeParse(raw.feeder);
+  const loads = Array.isArray(raw.loads) ? raw.loads.map((load) => loadSchema.safeParse(load)) : [];
+  return {
+    supply: supply.success ? supply.data : null,
+    feeder: feeder === undefined ? undefined : feeder.success ? feeder.data : null,
+    // A sparse list: loads that failed the schema leave holes, so the rules keep the file's indices.
+    loads: loads.reduce<(LoadSpec | undefined)[]>((list, r, i) => {
+      if (r.success) list[i] = r.data;
+      return list;
+    }, []),
+  };
 }
 
 /**
