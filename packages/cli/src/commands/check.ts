@@ -3,6 +3,7 @@ import { checkHandFigures, InputError, normaliseBoard, parseBoard, readBoardText
 import type { CliIo } from '../io.js';
 import { UsageError } from '../exitCodes.js';
 import { renderHandCheckReport } from '../format/handCheckReport.js';
+import { writeResult } from '../writeResult.js';
 
 export interface CheckCommandOptions {
   readonly json?: boolean;
@@ -29,6 +30,6 @@ export async function runCheck(boardFile: string, figuresFile: string, options: 
     if (error instanceof InputError) throw new InputError(error.issues, `the hand figures in "${figuresFile}" are not valid`);
     throw error;
   }
-  io.stdout(options.json ? `${JSON.stringify(result, null, 2)}\n` : renderHandCheckReport(result));
+  writeResult(io, result, options.json, renderHandCheckReport);
   return result;
 }
