@@ -10,6 +10,7 @@ const blocks = [
   ['harmonics-output', ['harmonics', 'examples/mill-street-offices.yaml']],
   ['correct-detuned-output', ['correct', 'examples/quayside-print-works.yaml']],
   ['check-output', ['check', 'examples/riverside-cold-store.yaml', 'examples/hand-figures/riverside-cold-store.yaml']],
+  ['rebalance-output', ['rebalance', 'examples/larkspur-court-flats.yaml']],
 ];
 let readme = readFileSync('README.md', 'utf8');
 for (const [marker, args] of blocks) {
