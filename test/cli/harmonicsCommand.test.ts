@@ -63,3 +63,15 @@ describe('trivar harmonics --help', () => {
     expect(r.stdout).toMatchSnapshot();
   });
 });
+
+describe('trivar correct without an arrangement on a board with harmonic data (built binary)', () => {
+  it('compares the arrangements, each with its plain and detuned variants', () => {
+    const board = readFileSync(`${ROOT}examples/quayside-print-works.yaml`, 'utf8').replace('  arrangement: delta-bank\n', '');
+    const r = runTrivar(['correct', '-'], board);
+    expect(r.stderr).toBe('');
+    expect(r.code).toBe(0);
+    expect(r.stdout).toContain('Arrangements compared');
+    expect(r.stdout).toContain('Harmonic check of every arrangement: plain and detuned banks');
+    expect(r.stdout).toMatch(/delta bank\s+plain .* FAILS/);
+  });
+});

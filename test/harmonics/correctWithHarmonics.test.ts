@@ -14,6 +14,7 @@ import { describe, expect, it } from 'vitest';
 import {
   bankOfReport,
   correctBoard,
+  compareWithHarmonics,
   correctWithHarmonics,
   normaliseBoard,
   parseBoard,
@@ -90,5 +91,22 @@ describe('detuned banks in the correction study', () => {
     const { cautions: plainCautions, ...plain } = correctBoard(b, parsed.correction);
     expect(JSON.parse(JSON.stringify(rest))).toEqual(JSON.parse(JSON.stringify(plain)));
     expect(cautions).toHaveLength(plainCautions.length);
+  });
+});
+
+describe('the arrangement comparison with the harmonic check', () => {
+  it('shows each arrangement as its passing variant and recommends one that passes', () => {
+    const spec = example('quayside-print-works.yaml');
+    const board = normaliseBoard(spec);
+    const { arrangement: _ignored, ...study } = spec.correction!;
+    const c = compareWithHarmonics(spec, board, study);
+    expect(c.harmonics.arrangements.map((a) => a.arrangement)).toEqual(c.outcomes.filter((o) => o.report).map((o) => o.arrangement));
+    for (const a of c.harmonics.arrangements) expect(a.variants[0]!.passes).toBe(false);
+    const recommended = c.harmonics.arrangements.find((a) => a.arrangement === c.recommended)!;
+    expect(recommended.chosen).not.toBeNull();
+    expect(recommended.variants.find((v) => v.name === recommended.chosen)!.passes).toBe(true);
+    const report = c.outcomes.find((o) => o.arrangement === c.recommended)!.report!;
+    expect(report.selection!.steps.every((s) => s.detuningFactor > 0)).toBe(true);
+    expect(c.why).toContain('Harmonic check');
   });
 });

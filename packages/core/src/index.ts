@@ -153,8 +153,8 @@ export type { FixedNetworkInput } from './network/solveFixedNetwork.js';
 export { solveFixedNetwork } from './network/solveFixedNetwork.js';
 export type { PassiveNetworkPlan, NodalMatrix } from './network/terminalImpedance.js';
 export { planPassiveNetwork } from './network/terminalImpedance.js';
-export type { CorrectionVariant, CorrectionHarmonics, HarmonicCorrectionReport } from './harmonics/correctWithHarmonics.js';
-export { correctWithHarmonics, boardHasHarmonicData, bankOfReport } from './harmonics/correctWithHarmonics.js';
+export type { CorrectionVariant, CorrectionHarmonics, HarmonicCorrectionReport, ArrangementHarmonics, HarmonicComparison } from './harmonics/correctWithHarmonics.js';
+export { correctWithHarmonics, compareWithHarmonics, boardHasHarmonicData, bankOfReport } from './harmonics/correctWithHarmonics.js';
 
 // Rebalancing (which circuits to move to which phase)
 export type { RebalanceSpec, AimSpec, AimFigure, LoadConditionSpec, PinSpec } from './rebalance/rebalanceSpec.js';

@@ -1,9 +1,9 @@
 /** `trivar correct`: size, choose and verify power-factor correction for a board. */
-import { boardHasHarmonicData, compareCorrections, correctBoard, correctWithHarmonics, InputError, normaliseBoard, parseBoard, readBoardText, type CorrectionComparison, type CorrectionReport, type HarmonicCorrectionReport } from '@trivar/core';
+import { boardHasHarmonicData, compareCorrections, compareWithHarmonics, correctBoard, correctWithHarmonics, InputError, normaliseBoard, parseBoard, readBoardText, type CorrectionComparison, type CorrectionReport, type HarmonicComparison, type HarmonicCorrectionReport } from '@trivar/core';
 import type { CliIo } from '../io.js';
 import { writeResult } from '../writeResult.js';
 import { renderCorrectionReport } from '../format/correctionReport.js';
-import { renderCorrectionHarmonics } from '../format/correctionHarmonicsReport.js';
+import { renderComparisonHarmonics, renderCorrectionHarmonics } from '../format/correctionHarmonicsReport.js';
 import { renderComparisonReport } from '../format/comparisonReport.js';
 
 export interface CorrectCommandOptions {
@@ -56,6 +56,11 @@ export async function runCorrect(file: string, options: CorrectCommandOptions, i
     const board = normaliseBoard(spec);
     // Without an arrangement (file or option) every arrangement that fits the board is compared.
     if (study.arrangement === undefined) {
+      if (boardHasHarmonicData(spec)) {
+        const comparison = compareWithHarmonics(spec, board, study);
+        writeResult(io, comparison, options.json, (c: HarmonicComparison) => renderComparisonReport(c) + renderComparisonHarmonics(c.harmonics));
+        return { kind: 'comparison', comparison };
+      }
       const comparison = compareCorrections(board, study);
       writeResult(io, comparison, options.json, renderComparisonReport);
       return { kind: 'comparison', comparison };

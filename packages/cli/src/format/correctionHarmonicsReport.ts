@@ -1,5 +1,5 @@
 /** The harmonic comparison of plain and detuned banks, appended to `trivar correct`'s report. */
-import type { CorrectionHarmonics } from '@trivar/core';
+import type { CorrectionHarmonics, HarmonicComparison } from '@trivar/core';
 import { fixed, renderTable, section } from './textTable.js';
 import { wrapText } from './wrapText.js';
 
@@ -52,6 +52,44 @@ export function renderCorrectionHarmonics(h: CorrectionHarmonics): string {
     ...reasons,
     wrapText(`basis: ${h.basis}`, '  ', '    '),
     wrapText('details: trivar harmonics on the board file; --json carries the chosen bank’s scan and duty (harmonics.check)', '  ', '    '),
+    '',
+  ].join('\n');
+}
+
+/** Every arrangement's plain and detuned variants in one table (comparison mode). */
+export function renderComparisonHarmonics(h: HarmonicComparison['harmonics']): string {
+  const names: Record<string, string> = { 'star-bank': 'star bank', 'delta-bank': 'delta bank', 'balancing-compensator': 'compensator' };
+  const rows = h.arrangements.flatMap((a) =>
+    a.variants.map((v, k) => [
+      k === 0 ? (names[a.arrangement] ?? a.arrangement) : '',
+      `${v.name}${v.name === a.chosen ? ' *' : ''}`,
+      v.unitRatedV === null ? '-' : fixed(v.unitRatedV, 0),
+      fixed(v.nameplateKvar, 1),
+      fixed(v.deliveredKvar, 1),
+      v.lowestResonanceOrder === null ? '-' : fixed(v.lowestResonanceOrder, 2),
+      v.resonantOrders.length ? v.resonantOrders.join(' ') : '-',
+      v.worstDutyRatio === null ? '-' : fixed(v.worstDutyRatio, 2),
+      v.passes ? 'passes' : 'FAILS',
+    ]),
+  );
+  return [
+    section('Harmonic check of every arrangement: plain and detuned banks'),
+    wrapText('* = the variant each arrangement is shown as above; kvar = delivered; peak h = lowest resonance; duty = worst / limit', '  ', '    '),
+    renderTable(
+      [
+        { header: 'arrangement', align: 'left' },
+        { header: 'bank', align: 'left' },
+        { header: 'unit V' },
+        { header: 'plate kvar' },
+        { header: 'kvar' },
+        { header: 'peak h' },
+        { header: 'near h', align: 'left' },
+        { header: 'duty' },
+        { header: 'check', align: 'left' },
+      ],
+      rows,
+    ),
+    wrapText(`rule: ${h.rule}`, '  ', '    '),
     '',
   ].join('\n');
 }

@@ -59,8 +59,8 @@ export interface CorrectionComparison {
   readonly rule: string;
 }
 
-/** Settings that belong to one arrangement only are dropped for the others. */
-function specFor(spec: CorrectionSpec, arrangement: Arrangement): CorrectionSpec {
+/** Settings that belong to one arrangement only are dropped for the others (also used by the harmonic comparison). */
+export function specFor(spec: CorrectionSpec, arrangement: Arrangement): CorrectionSpec {
   const { starPoint, share, compensator, balance, target, ...rest } = spec;
   const out: Record<string, unknown> = { ...rest, arrangement };
   if (arrangement === 'star-bank' && starPoint !== undefined) out.starPoint = starPoint;
@@ -79,7 +79,7 @@ function specFor(spec: CorrectionSpec, arrangement: Arrangement): CorrectionSpec
 /** A reactor costs about twice a capacitor of the same kvar (common practice, no source). */
 const REACTOR_COST_FACTOR = 2;
 
-function figuresOf(r: CorrectionReport): ArrangementFigures {
+export function figuresOf(r: CorrectionReport): ArrangementFigures {
   const v = r.verification;
   const sel = r.selection;
   const reactorKvar = v.equipment.flatMap((g) => g.branches).reduce((s, b) => s + (b.susceptanceS < 0 ? Math.abs(kvarFromSusceptance(b.susceptanceS, b.vNominal)) : 0), 0);

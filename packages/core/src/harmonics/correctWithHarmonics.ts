@@ -18,6 +18,8 @@
 import type { Board, BoardLoad, Terminal } from '../board/boardModel.js';
 import type { BoardSpec } from '../board/boardSchema.js';
 import { correctBoard } from '../correction/correctBoard.js';
+import { compareCorrections, figuresOf, specFor, type CorrectionComparison } from '../correction/compareCorrections.js';
+import type { Arrangement } from '../correction/correctionSpec.js';
 import { parseCorrectionSpec } from '../correction/validateCorrectionSpec.js';
 import { defaultPractice } from '../correction/selectBankUnits.js';
 import { TYPICAL_CATALOGUES, catalogueUnitOf } from '../correction/unitCatalogues.js';
@@ -294,6 +296,66 @@ export function correctWithHarmonics(spec: BoardSpec, board: Board, study: unkno
       variants: runs.map((v) => v.summary),
       check: shown.harmonics,
       basis: 'each variant is sized for the same target with its effective fundamental output Q_r(U/U_r)²/(1 − p) and units rated for U/(1 − p) with the study’s voltage margin; every correction check is re-run, then the resonance scan and the capacitor duty of every step combination',
+    },
+  };
+}
+
+export interface ArrangementHarmonics {
+  readonly arrangement: Arrangement;
+  /** The variant chosen for this arrangement; null when none passes (or nothing was studied). */
+  readonly chosen: string | null;
+  readonly summary: string;
+  readonly variants: readonly CorrectionVariant[];
+}
+
+/** The arrangement comparison with every arrangement's plain and detuned variants checked on the harmonics. */
+export type HarmonicComparison = CorrectionComparison & {
+  readonly harmonics: {
+    readonly arrangements: readonly ArrangementHarmonics[];
+    /** What the comparison recommended before the harmonic check. */
+    readonly recommendedBeforeCheck: Arrangement | null;
+    readonly rule: string;
+  };
+};
+
+/**
+ * `compareCorrections` on a board with harmonic data: each arrangement's bank
+ * is checked with its detuned variants (`correctWithHarmonics`); the outcome
+ * of each arrangement becomes its chosen variant, and the recommendation goes
+ * to an arrangement whose chosen variant passes — the comparison's own pick
+ * when it does, else the passing one of best verdict and least cost.
+ */
+export function compareWithHarmonics(spec: BoardSpec, board: Board, study: unknown): HarmonicComparison {
+  const comparison = compareCorrections(board, study);
+  const parsed = parseCorrectionSpec(study, board);
+  const checked = comparison.outcomes.map((o) => {
+    if (!o.report) return { outcome: o, harmonics: null };
+    const report = correctWithHarmonics(spec, board, specFor(parsed, o.arrangement));
+    const { harmonics, ...plainReport } = report;
+    return { outcome: { ...o, report: plainReport, figures: figuresOf(plainReport) }, harmonics };
+  });
+  const passing = checked.filter((c) => c.harmonics?.chosen && c.outcome.report && ['meets-target', 'meets-target-at-nominal-capacitance', 'already-meets-target'].includes(c.outcome.report.status));
+  const before = comparison.recommended;
+  const pick =
+    passing.find((c) => c.outcome.arrangement === before) ??
+    [...passing].sort((a, b) => (a.outcome.report!.status === 'meets-target' ? 0 : 1) - (b.outcome.report!.status === 'meets-target' ? 0 : 1) || a.outcome.figures!.cost - b.outcome.figures!.cost)[0] ??
+    null;
+  const name = (a: Arrangement) => ARRANGEMENT_NAMES[a];
+  const why = pick
+    ? pick.outcome.arrangement === before
+      ? `${comparison.why.replace(/\.?$/, '.')} Harmonic check: ${pick.harmonics!.summary}.`
+      : `${name(pick.outcome.arrangement)} with ${pick.harmonics!.chosen}: the comparison's first choice (${before ? name(before) : 'none'}) fails the harmonic check in every variant; ${pick.harmonics!.summary}.`
+    : `${comparison.why.replace(/\.?$/, '.')} But no arrangement passes the harmonic check in any variant: a tuned filter or a specialist harmonic study is needed.`;
+  return {
+    ...comparison,
+    outcomes: checked.map((c) => c.outcome),
+    recommended: pick?.outcome.arrangement ?? before,
+    meetsTarget: pick !== null && comparison.meetsTarget,
+    why,
+    harmonics: {
+      arrangements: checked.flatMap((c) => (c.harmonics ? [{ arrangement: c.outcome.arrangement, chosen: c.harmonics.chosen, summary: c.harmonics.summary, variants: c.harmonics.variants }] : [])),
+      recommendedBeforeCheck: before,
+      rule: 'an arrangement counts only with a variant (plain, or detuned at 5.67/7/14 %) that meets the target, resonates near no order present and keeps the capacitor duty within limits; each arrangement is shown as that variant',
     },
   };
 }
