@@ -55,14 +55,15 @@ export async function runProfile(file: string, options: ProfileCommandOptions, i
   assertNotInput([options.summaryCsv, options.intervalsCsv, ...chartFiles].filter((x): x is string => x !== undefined), [file, options.data]);
   const plan = planColumns(board, readCsvHeader(options.data), { ...(spec.profile?.groups ? { groups: spec.profile.groups } : {}), undrivenAtRating: options.unlistedAtRating ?? false });
   const progress = startProgress(io);
-  progress.stage('reading', 1);
-  const threads = options.threads ?? Math.min(2, availableParallelism());
-  const raw = await readIntervalRows(options.data, plan, { timeZone: zone }, threads);
-  const table = checkIntervalSequence(raw, options.fillGaps ?? 'none');
-  const drivers = planDrivers(plan);
-  const columns = driverColumns(plan, table.values, table.count);
   let study: ProfileStudy;
+  // Stop the bar on every way out, or its timer keeps the process alive and the cursor hidden.
   try {
+    progress.stage('reading', 1);
+    const threads = options.threads ?? Math.min(2, availableParallelism());
+    const raw = await readIntervalRows(options.data, plan, { timeZone: zone }, threads);
+    const table = checkIntervalSequence(raw, options.fillGaps ?? 'none');
+    const drivers = planDrivers(plan);
+    const columns = driverColumns(plan, table.values, table.count);
     study = studyProfile(
       {
         board: plan.board,
