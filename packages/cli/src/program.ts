@@ -76,9 +76,9 @@ The study can also live in the board file under "rebalance:" (pins, load conditi
 see trivar schema); options override it.
 
 Examples:
-  trivar rebalance examples/maple-court-flats.yaml
-  trivar rebalance examples/maple-court-flats.yaml --move-limit 3
-  trivar rebalance examples/maple-court-flats.yaml --near-best 2 --write flats-rebalanced.yaml
+  trivar rebalance examples/larkspur-court-flats.yaml
+  trivar rebalance examples/larkspur-court-flats.yaml --move-limit 3
+  trivar rebalance examples/larkspur-court-flats.yaml --near-best 2 --write larkspur-moved.yaml
   trivar rebalance board.yaml --aim neutral=1,largest-line=0.5 --json
 
 Exit codes: as for solve`;
