@@ -1,4 +1,4 @@
-import { readFileSync } from 'node:fs';
+import { readdirSync, readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import { correctBoard, normaliseBoard, parseBoardText } from '@trivar/core';
 import { ROOT, runTrivar } from './runTrivar.js';
@@ -60,7 +60,7 @@ describe('trivar correct (built binary)', () => {
     for (const line of r.stdout.split('\n')) expect(line.length).toBeLessThanOrEqual(100);
   });
 
-  it.each(['cedar-falls-print-shop', 'corner-bakery', 'harbour-cottages', 'hillside-workshop', 'maple-court-flats', 'maple-lane-house', 'mill-street-offices', 'riverside-cold-store'])(
+  it.each(readdirSync(`${ROOT}examples`).filter((f) => f.endsWith('.yaml')).map((f) => f.slice(0, -5)))(
     'examples/%s.yaml: fits 100 columns, and a bank that is built comes with its controller settings',
     (name) => {
       const text = runTrivar(['correct', `examples/${name}.yaml`]);
