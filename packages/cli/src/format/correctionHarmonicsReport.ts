@@ -45,7 +45,7 @@ export function renderCorrectionHarmonics(h: CorrectionHarmonics): string {
     : [];
   return [
     section('Harmonic check: plain and detuned banks'),
-    '  * = the bank above; kvar = delivered; peak h = lowest resonance of any step combination; duty = worst / limit',
+    wrapText('* = the bank above; kvar = delivered; peak h = lowest resonance of any step combination; duty = worst / limit', '  ', '    '),
     table,
     wrapText(h.summary, '  ', '    '),
     ...reactors,
