@@ -17,6 +17,6 @@ describe('correction regressions', () => {
     expect(report.sizing.status).toBe('meets-target');
     const a = report.sizing.arrangement === 'star-bank' ? report.sizing.check.lines[0]! : null;
     expect(a!.meetsMinimum).toBe(true);
-    expect(Math.abs(a!.pf - pf) / pf).toBeLessThan(1e-10);
+    expect(Math.abs(a!.pf! - pf) / pf).toBeLessThan(1e-10);
   });
 });

@@ -2,7 +2,7 @@
 import { correctBoard, InputError, normaliseBoard, parseBoard, readBoardText, type CorrectionReport } from '@trivar/core';
 import type { CliIo } from '../io.js';
 import { writeResult } from '../writeResult.js';
-import { UsageError } from '../exitCodes.js';
+import { collapseError, UsageError } from '../exitCodes.js';
 import { renderCorrectionReport } from '../format/correctionReport.js';
 
 export interface CorrectCommandOptions {
@@ -59,6 +59,8 @@ export async function runCorrect(file: string, options: CorrectCommandOptions, i
       );
     throw error;
   }
+  // Correcting a board whose supply has collapsed would size equipment for a state that cannot exist.
+  if (report.verification.before.operatingPoint.collapsed) throw collapseError(report.verification.before);
   writeResult(io, report, options.json, renderCorrectionReport);
   return report;
 }

@@ -10,7 +10,7 @@ const SYSTEM_WORDS: Record<string, string> = {
 };
 
 function pfText(r: Pick<PowerReading, 'pf' | 'sense' | 'kVA'>): string {
-  if (r.kVA === 0) return '-';
+  if (r.pf === null) return '-';
   const sense = r.sense === 'lagging' ? ' lag' : r.sense === 'leading' ? ' lead' : '';
   return `${fixed(r.pf, 3)}${sense}`;
 }
@@ -151,6 +151,9 @@ function powerBlock(r: BoardResult): string {
     `  loads      ${fixed(r.totals.kW, 3)} kW  ${fixed(r.totals.kvar, 3)} kvar`,
     `  losses     ${fixed(l.totalKW, 3)} kW  (source ${fixed(l.sourceKW, 3)}, line conductors ${fixed(l.lineFeederKW, 3)}, neutral ${fixed(l.neutralKW, 3)})`,
     `  from source ${fixed(r.source.kW, 3)} kW  ${fixed(r.source.kvar, 3)} kvar`,
+    ...(r.transformer
+      ? [`  transformer ${fixed(r.transformer.kVA, 2)} kVA at its terminals; most loaded line ${fixed(r.transformer.loadingPercent, 0)} % of rated current (${fixed(r.transformer.ratedKVA, 0)} kVA rating)`]
+      : []),
   ].join('\n');
 }
 
@@ -200,6 +203,9 @@ function openNeutralBlock(study: OpenNeutralStudy): string {
 export function renderSolveReport(r: BoardResult): string {
   const parts = [
     headerLines(r).join('\n'),
+    ...(r.operatingPoint.collapsed
+      ? [`\nSUPPLY COLLAPSE — the supply cannot carry these loads; the figures below are not a working board:\n${r.operatingPoint.findings.map((f) => wrapParagraph(`! ${f}`, '  ')).join('\n')}`]
+      : []),
     section('At the board') + phaseTable(r),
     section('Circuits (worst branch voltage)') + loadTable(r),
     section('Symmetrical components and unbalance') + sequenceBlock(r),
