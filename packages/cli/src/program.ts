@@ -5,6 +5,8 @@ import { DEFAULT_MAX_INPUT_MB, type CliIo } from './io.js';
 import { runSolve } from './commands/solve.js';
 import { runSchema } from './commands/schema.js';
 import { runCorrect, type CorrectCommandOptions } from './commands/correct.js';
+import { runHarmonics } from './commands/harmonics.js';
+import { runRebalance, type RebalanceCommandOptions } from './commands/rebalance.js';
 import { DIAGRAM_VIEWS, runDiagram, type DiagramCommandOptions } from './commands/diagram.js';
 import { runReport, type ReportCommandOptions } from './commands/report.js';
 import { runCheck, type CheckCommandOptions } from './commands/check.js';
@@ -40,6 +42,56 @@ Exit codes: as for solve, plus
   5  the study ran but the target cannot be met with the allowed equipment (the report says why
      and shows the best reachable result)`;
 
+const HARMONICS_EXAMPLES = `
+Spectra go on the loads (spectrum: switch-mode | [{ order, percent, angleDeg }]); background distortion,
+an installed bank and the IEEE 519 check go under "harmonics:" in the board file (see trivar schema).
+
+Examples:
+  trivar harmonics examples/mill-street-offices.yaml
+  trivar harmonics examples/mill-street-offices.yaml --json > harmonics.json
+
+Exit codes: as for solve`;
+
+const REBALANCE_EXAMPLES = `
+The study can also live in the board file under "rebalance:" (pins, load conditions, capacities;
+see trivar schema); options override it.
+
+Examples:
+  trivar rebalance examples/maple-court-flats.yaml
+  trivar rebalance examples/maple-court-flats.yaml --move-limit 3
+  trivar rebalance examples/maple-court-flats.yaml --near-best 2 --write flats-rebalanced.yaml
+  trivar rebalance board.yaml --aim neutral=1,largest-line=0.5 --json
+
+Exit codes: as for solve`;
+
+const AIM_NAMES: Record<string, string> = {
+  'largest-line': 'largestLine',
+  neutral: 'neutral',
+  'current-unbalance': 'currentUnbalance',
+  'voltage-unbalance': 'voltageUnbalance',
+};
+
+/** "neutral=2,largest-line" → { neutral: 2, largestLine: 1 }. */
+function parseAim(text: string): Record<string, number> {
+  const aim: Record<string, number> = {};
+  for (const part of text.split(',')) {
+    const [name = '', weight] = part.split('=').map((s) => s.trim());
+    const key = AIM_NAMES[name];
+    const w = weight === undefined ? 1 : Number(weight);
+    if (!key || !Number.isFinite(w) || w < 0)
+      throw new InvalidArgumentError(`expected figures from ${Object.keys(AIM_NAMES).join(', ')}, each optionally =weight (a number >= 0), separated by commas.`);
+    aim[key] = w;
+  }
+  return aim;
+}
+
+/** Any number: the study's schema checks the range and names the field. */
+function anyNumber(text: string): number {
+  const x = Number(text);
+  if (text.trim() === '' || !Number.isFinite(x)) throw new InvalidArgumentError('expected a number.');
+  return x;
+}
+
 const DIAGRAM_EXAMPLES = `
 Examples:
   trivar diagram examples/corner-bakery.yaml -o bakery-phasors.svg
@@ -64,6 +116,7 @@ The figures file (YAML or JSON) lists the capacitors you chose and, if you like,
 
 Examples:
   trivar check examples/riverside-cold-store.yaml examples/hand-figures/riverside-cold-store.yaml
+  trivar check board.yaml my-figures.yaml --diagram triangles.svg
   trivar check board.yaml my-figures.yaml --json`;
 
 function numberIn(min: number, max: number, what: string) {
@@ -132,6 +185,34 @@ export function createProgram(io: CliIo, outcome: RunOutcome = { exitCode: EXIT.
     });
 
   program
+    .command('harmonics')
+    .description('harmonic study: line and neutral rms with harmonics, THD, resonance scan of every bank state, capacitor duty')
+    .argument('<board>', 'board file (YAML or JSON), or - for standard input')
+    .option('--json', 'print the full report (with the scan data) as JSON instead of the text report')
+    .addHelpText('after', HARMONICS_EXAMPLES)
+    .action(async (board: string, opts: { json?: boolean }) => {
+      await runHarmonics(board, opts, io);
+    });
+
+  program
+    .command('rebalance')
+    .description('find which circuits to move to which phase (fewest moves, proven bound) and re-solve the board')
+    .argument('<board>', 'board file (YAML or JSON), or - for standard input')
+    .option('--aim <figures>', 'what to make small: largest-line, neutral, current-unbalance, voltage-unbalance, each =weight (default largest-line,neutral)', parseAim)
+    .addOption(new Option('--combine <how>', 'over several load conditions: the worst one or the weighted mean').choices(['worst', 'weighted']))
+    .option('--move-limit <n>', 'move at most this many circuits', anyNumber)
+    .option('--near-best <percent>', 'fewest moves whose score is within this % of the best', anyNumber)
+    .option('--capacity <A>', 'largest current any line may carry, A', anyNumber)
+    .addOption(new Option('--method <how>', 'search: exact branch-and-bound, local search, or auto by board size').choices(['auto', 'exact', 'local-search']))
+    .option('--no-table', 'skip the table of the best score by moves allowed')
+    .option('--write <file>', 'save the board file with the moves made (never the input file)')
+    .option('--json', 'print the full report as JSON instead of the text report')
+    .addHelpText('after', REBALANCE_EXAMPLES)
+    .action(async (board: string, opts: RebalanceCommandOptions) => {
+      await runRebalance(board, opts, io);
+    });
+
+  program
     .command('diagram')
     .description('draw the board as SVG: phasors (voltages, line and neutral currents), sequence components, or per-line current triangles')
     .argument('<board>', 'board file (YAML or JSON), or - for standard input')
@@ -161,6 +242,7 @@ export function createProgram(io: CliIo, outcome: RunOutcome = { exitCode: EXIT.
     .argument('<board>', 'board file (YAML or JSON), or - for standard input')
     .argument('<figures>', 'your hand figures (YAML or JSON): capacitors per phase or line pair, expected PF and currents')
     .option('--json', 'print the full result as JSON instead of the report')
+    .option('--diagram <file>', 'also write the current triangle of every line, without and with your capacitors, as SVG')
     .addHelpText('after', CHECK_EXAMPLES)
     .action(async (board: string, figures: string, opts: CheckCommandOptions) => {
       await runCheck(board, figures, opts, io);

@@ -23,6 +23,9 @@ function expectedFor(issue: core.$ZodIssue): string {
       return `a number ${issue.inclusive ? '<=' : '<'} ${String(issue.maximum)}`;
     case 'unrecognized_keys':
       return 'only the documented keys (see the board JSON Schema)';
+    case 'invalid_union':
+      // Each alternative says what it takes: "one of "a", "b" or a list".
+      return issue.errors.map((alternative) => (alternative[0] ? expectedFor(alternative[0]) : '')).filter(Boolean).join(' or ') || issue.message;
     default:
       return issue.message;
   }
@@ -42,13 +45,18 @@ export function inputIssuesFromZod(issues: readonly core.$ZodIssue[], root: unkn
     const path = [...prefix, ...issue.path];
     if (issue.code === 'unrecognized_keys')
       return issue.keys.map((key) => inputIssue('unknown_key', formatPath([...path, key]), 'only the documented keys (see the board JSON Schema)', key));
-    const received = valueAt(root, issue.path);
-    const code =
-      (issue.code === 'invalid_type' || issue.code === 'invalid_value') && received === undefined
+    // A refinement may report a value of its own in params.received (a spectrum's total, not the list).
+    const received = issue.code === 'custom' && issue.params?.received !== undefined ? (issue.params.received as unknown) : valueAt(root, issue.path);
+    // A refinement names its own code in params.code (`duplicate`, `not_integer`...).
+    const own = issue.code === 'custom' && typeof issue.params?.code === 'string' ? (issue.params.code as string) : null;
+    const code = own ??
+      ((issue.code === 'invalid_type' || issue.code === 'invalid_value') && received === undefined
         ? 'missing'
         : issue.code === 'too_small' || issue.code === 'too_big'
           ? 'out_of_range'
-          : issue.code;
+          : issue.code === 'invalid_union'
+            ? 'invalid_value'
+            : issue.code);
     return [inputIssue(code, formatPath(path), expectedFor(issue), received)];
   });
 }
