@@ -53,7 +53,8 @@ const studyArb = (spec: BoardSpec): fc.Arbitrary<Study> => {
 function scoreOf(study: Study, figures: readonly (Figures & { positive: number })[]): number {
   const per = figures.map((f) => {
     const w = study.aim;
-    return (w.largestLine ?? 0) * Math.max(...f.lines) + (w.neutral ?? 0) * f.neutral + ((w.currentUnbalance ?? 0) * 100 * f.negative) / f.positive;
+    return (w.largestLine ?? 0) * Math.max(...f.lines) + (w.neutral ?? 0) * f.neutral + (f.positive === 0 ? 0 : ((w.currentUnbalance ?? 0) * 100 * f.negative) / f.positive);
+    // (An idle condition carries exactly zero current since round-off is floored: no unbalance, not 0/0.)
   });
   if (study.combine === 'worst') return Math.max(...per);
   const total = study.conditions.reduce((s, c) => s + c.weight, 0);
