@@ -88,7 +88,8 @@ if (!executablePath && !mustRun) {
             return { text: t.textContent ?? '', x: b.x, y: b.y, w: b.width, h: b.height };
           });
           const rect = svg.getBoundingClientRect();
-          return { name: fig.getAttribute('data-figure')!, view: svg.getAttribute('data-view'), phasors, boxes, width: rect.width, height: rect.height };
+          const curves = svg.querySelectorAll('polyline.series').length;
+          return { name: fig.getAttribute('data-figure')!, view: svg.getAttribute('data-view'), phasors, curves, boxes, width: rect.width, height: rect.height };
         }),
       );
       await page.close();
@@ -103,6 +104,7 @@ if (!executablePath && !mustRun) {
           expect(currents.filter((p) => p.phase !== 'N').length, `${f.name} has a current per line`).toBe(voltages.length);
         }
         if (f.view === 'sequence') expect(f.phasors).toHaveLength(14); // per row: 1 zero + 3 positive + 3 negative
+        if (f.view === 'impedance-scan') expect(f.curves, `${f.name} has its curves`).toBeGreaterThan(0);
         if (f.view === 'triangles') expect(f.phasors.filter((p) => p.state === 'change').length).toBe(f.phasors.length / 3);
         const overlaps: string[] = [];
         f.boxes.forEach((a, i) =>

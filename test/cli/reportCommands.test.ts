@@ -27,6 +27,16 @@ describe('trivar report', () => {
     expect(readFileSync(join(dir, 'b.html'), 'utf8')).not.toContain('<section id="correction">');
   });
 
+  it('includes the harmonic study when the board file has one, or leaves it out with --no-harmonics', () => {
+    const dir = scratch();
+    expect(runTrivar(['report', 'examples/mill-street-offices.yaml', '-o', join(dir, 'a.html')]).code).toBe(0);
+    expect(runTrivar(['report', 'examples/mill-street-offices.yaml', '--no-harmonics', '-o', join(dir, 'b.html')]).code).toBe(0);
+    const a = readFileSync(join(dir, 'a.html'), 'utf8');
+    expect(a).toContain('<section id="harmonics">');
+    expect(a).toContain('data-view="impedance-scan"');
+    expect(readFileSync(join(dir, 'b.html'), 'utf8')).not.toContain('<section id="harmonics">');
+  });
+
   it('--format md writes the Markdown and its SVG figures beside it', () => {
     const dir = scratch();
     const r = runTrivar(['report', 'examples/riverside-cold-store.yaml', '--format', 'md', '-o', join(dir, 'store.md')]);

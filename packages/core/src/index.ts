@@ -141,6 +141,7 @@ export type { SequenceDiagramOptions } from './render/renderSequenceDiagram.js';
 export { renderSequenceDiagram } from './render/renderSequenceDiagram.js';
 export type { CurrentTriangleOptions, LineCurrentParts } from './render/renderCurrentTriangles.js';
 export { renderCurrentTriangles, lineCurrentParts } from './render/renderCurrentTriangles.js';
+export { renderImpedanceScan } from './render/renderImpedanceScan.js';
 export type { ReportDocument, ReportSection, ReportBlock, ReportColumn } from './render/report/reportDocument.js';
 export type { BoardReportInput } from './render/report/buildBoardReport.js';
 export { buildBoardReport } from './render/report/buildBoardReport.js';

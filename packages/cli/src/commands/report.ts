@@ -1,6 +1,6 @@
 /** `trivar report`: the whole study of a board as one self-contained HTML file, or Markdown with SVG files. */
 import { basename, dirname, extname, join } from 'node:path';
-import { buildBoardReport, correctBoard, normaliseBoard, parseBoard, readBoardText, renderReportHtml, renderReportMarkdown, solveBoardModel } from '@trivar/core';
+import { studyHarmonics, buildBoardReport, correctBoard, normaliseBoard, parseBoard, readBoardText, renderReportHtml, renderReportMarkdown, solveBoardModel } from '@trivar/core';
 import type { CliIo } from '../io.js';
 import { UsageError } from '../exitCodes.js';
 import { assertNotInput, writeOutputFile } from '../outputFiles.js';
@@ -10,6 +10,8 @@ export interface ReportCommandOptions {
   readonly format?: 'html' | 'md';
   /** Commander's negation of --no-correction. */
   readonly correction?: boolean;
+  /** Commander's negation of --no-harmonics. */
+  readonly harmonics?: boolean;
 }
 
 export async function runReport(file: string, options: ReportCommandOptions, io: CliIo, footer: string): Promise<void> {
@@ -17,11 +19,14 @@ export async function runReport(file: string, options: ReportCommandOptions, io:
   const out = options.output;
   if (format === 'md' && !out) throw new UsageError('a Markdown report writes its figures as SVG files beside it: give the report file with -o, e.g. -o board-report.md');
   if (out) assertNotInput([out], [file]);
-  const spec = parseBoard(readBoardText(await io.readSource(file)));
+  const raw = readBoardText(await io.readSource(file));
+  const spec = parseBoard(raw);
   const board = normaliseBoard(spec);
   const result = solveBoardModel(board);
   const correction = options.correction !== false && spec.correction?.arrangement ? correctBoard(board, spec.correction) : null;
-  const doc = buildBoardReport({ spec, result, correction });
+  const wantsHarmonics = spec.harmonics !== undefined || spec.loads.some((l) => l.spectrum !== undefined);
+  const harmonics = options.harmonics !== false && wantsHarmonics ? studyHarmonics(raw) : null;
+  const doc = buildBoardReport({ spec, result, correction, harmonics });
   if (format === 'html') {
     const html = renderReportHtml(doc, { footer });
     if (out) writeOutputFile(out, html);
