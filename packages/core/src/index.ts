@@ -78,6 +78,8 @@ export { validateCorrectionSpec, parseCorrectionSpec } from './correction/valida
 export { CORRECTION_DEFAULTS } from './correction/correctionDefaults.js';
 export type { ResolvedTarget, TargetCheck, LineTargetCheck, BoardTargetDefinition } from './correction/correctionTarget.js';
 export { resolveTarget, checkTarget, boardPowerFactor } from './correction/correctionTarget.js';
+export type { BalanceTarget, BalanceCheck } from './correction/balanceTarget.js';
+export { checkBalance } from './correction/balanceTarget.js';
 export type { EquipmentGroup, EquipmentBranch, EquipmentTerminal, BranchSlot, AddEquipmentOptions } from './correction/equipment.js';
 export { addCorrectionEquipment } from './correction/equipment.js';
 export type { AppliedConditions, CapacitorOutput } from './correction/capacitorOutput.js';
