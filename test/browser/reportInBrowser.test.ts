@@ -31,9 +31,13 @@ function findChromium(): string | null {
 const executablePath = findChromium();
 const mustRun = process.env.CI === 'true';
 const ARTIFACTS = join(ROOT, 'test/browser/artifacts');
-const examples = readdirSync(join(ROOT, 'examples'))
-  .filter((f) => f.endsWith('.yaml'))
-  .map((f) => f.replace(/\.yaml$/, ''));
+const PROFILE_REPORT = 'quay-street-flats-with-profile';
+const examples = [
+  ...readdirSync(join(ROOT, 'examples'))
+    .filter((f) => f.endsWith('.yaml'))
+    .map((f) => f.replace(/\.yaml$/, '')),
+  PROFILE_REPORT,
+];
 
 /** Text block of the print stylesheet (14 mm margins) at 96 px per inch. */
 const PAPER = [
@@ -52,9 +56,15 @@ if (!executablePath && !mustRun) {
       expect(executablePath, 'CI=true but Chromium was not found').not.toBeNull();
       mkdirSync(ARTIFACTS, { recursive: true });
       for (const name of examples) {
+        if (name === PROFILE_REPORT) continue;
         const r = runTrivar(['report', `examples/${name}.yaml`, '-o', join(ARTIFACTS, `${name}.html`)]);
         if (r.code !== 0) throw new Error(`trivar report failed for ${name}: ${r.stderr}`);
       }
+      // One report with a load-profile section (a week of generated interval data).
+      const data = join(ARTIFACTS, 'quay-street-week.csv');
+      execFileSync(process.execPath, [join(ROOT, 'scripts/generate-profile-example.mjs'), data, '--days', '7'], { cwd: ROOT });
+      const p = runTrivar(['report', 'examples/quay-street-flats.yaml', '--profile-data', data, '-o', join(ARTIFACTS, `${PROFILE_REPORT}.html`)]);
+      if (p.code !== 0) throw new Error(`trivar report with profile data failed: ${p.stderr}`);
       // Root (CI) cannot use Chromium's sandbox; the pages are trivar's own local files.
       browser = await chromium.launch({ executablePath: executablePath!, args: ['--no-sandbox', '--disable-gpu'] });
     }, 120_000);

@@ -270,6 +270,8 @@ export function createProgram(io: CliIo, outcome: RunOutcome = { exitCode: EXIT.
     .addOption(new Option('--format <kind>', 'report format').choices(['html', 'md']).default('html'))
     .option('--no-correction', "leave out the board file's correction study")
     .option('--no-harmonics', "leave out the harmonic study (run when the board file has a harmonics: section or load spectra)")
+    .option('--profile-data <file.csv>', 'add a load-over-time section from interval data (columns as for trivar profile --data)')
+    .option('--time-zone <zone>', 'IANA time zone of the interval data (default UTC)')
     .addHelpText('after', REPORT_EXAMPLES)
     .action(async (board: string, opts: ReportCommandOptions) => {
       await runReport(board, opts, io, `Made with trivar ${VERSION}. Figures come from the model entered; check them against measurements and local codes.`);

@@ -179,6 +179,9 @@ export type { ReportHtmlOptions } from './render/report/renderReportHtml.js';
 export { renderReportHtml } from './render/report/renderReportHtml.js';
 export type { MarkdownReport } from './render/report/renderReportMarkdown.js';
 export { renderReportMarkdown } from './render/report/renderReportMarkdown.js';
+export type { ProfileChart } from './render/report/profileSection.js';
+export { profileSection } from './render/report/profileSection.js';
+export { harmonicsSection } from './render/report/harmonicsSection.js';
 
 // Checking hand calculations (trivar check)
 export type { HandFiguresSpec, HandCapacitorSpec, HandBranch } from './handCheck/handFiguresSpec.js';

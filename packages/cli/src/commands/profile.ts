@@ -39,14 +39,16 @@ export interface ProfileCommandOptions {
   readonly threads?: number;
 }
 
-export async function runProfile(file: string, options: ProfileCommandOptions, io: CliIo): Promise<ProfileStudy> {
+/**
+ * Reads the board and its interval data and runs the profile study (no files written);
+ * `trivar profile` and `trivar report --profile-data` share it.
+ */
+export async function computeProfileStudy(file: string, options: ProfileCommandOptions, io: CliIo): Promise<{ spec: ReturnType<typeof parseBoard>; study: ProfileStudy }> {
   const spec = parseBoard(readBoardText(await io.readSource(file)));
   const board = normaliseBoard(spec);
   const zone = options.timeZone ?? 'UTC';
   if (!isKnownTimeZone(zone)) throw new UsageError(`--time-zone: "${zone}" is not a time zone this system knows (expected an IANA name such as Europe/Lisbon or America/Chicago)`);
   if (!options.data) throw new UsageError('give the interval data with --data <file.csv> (see trivar profile --help for the columns)');
-  const chartFiles = options.charts ? CHART_FILES.map((name) => join(options.charts!, name)) : [];
-  assertNotInput([options.summaryCsv, options.intervalsCsv, ...chartFiles].filter((x): x is string => x !== undefined), [file, options.data]);
   const plan = planColumns(board, readCsvHeader(options.data), { ...(spec.profile?.groups ? { groups: spec.profile.groups } : {}), undrivenAtRating: options.unlistedAtRating ?? false });
   const progress = startProgress(io);
   progress.stage('reading', 1);
@@ -78,6 +80,13 @@ export async function runProfile(file: string, options: ProfileCommandOptions, i
   } finally {
     progress.stop();
   }
+  return { spec, study };
+}
+
+export async function runProfile(file: string, options: ProfileCommandOptions, io: CliIo): Promise<ProfileStudy> {
+  const chartFiles = options.charts ? CHART_FILES.map((name) => join(options.charts!, name)) : [];
+  assertNotInput([options.summaryCsv, options.intervalsCsv, ...chartFiles].filter((x): x is string => x !== undefined), [file, ...(options.data ? [options.data] : [])]);
+  const { spec, study } = await computeProfileStudy(file, options, io);
   const currency = spec.profile?.tariff?.currency ?? 'units';
   if (options.summaryCsv) writeOutputFile(options.summaryCsv, summaryCsv(study.result));
   if (options.intervalsCsv) writeOutputFile(options.intervalsCsv, intervalCsv(study));
