@@ -1,6 +1,6 @@
 /** `trivar report`: the whole study of a board as one self-contained HTML file, or Markdown with SVG files. */
 import { basename, dirname, extname, join } from 'node:path';
-import { profileSection, studyHarmonics, type ReportSection, buildBoardReport, correctBoard, normaliseBoard, parseBoard, readBoardText, renderReportHtml, renderReportMarkdown, solveBoardModel } from '@trivar/core';
+import { profileSection, studyHarmonics, type BoardSpec, type ReportSection, buildBoardReport, correctBoard, normaliseBoard, parseBoard, readBoardText, renderReportHtml, renderReportMarkdown, solveBoardModel } from '@trivar/core';
 import type { CliIo } from '../io.js';
 import { UsageError } from '../exitCodes.js';
 import { assertNotInput, writeOutputFile } from '../outputFiles.js';
@@ -20,8 +20,8 @@ export interface ReportCommandOptions {
 }
 
 /** The profile study of the interval data, as a report section with its charts. */
-async function profileReportSection(file: string, options: ReportCommandOptions, io: CliIo): Promise<ReportSection> {
-  const { study } = await computeProfileStudy(file, { data: options.profileData!, ...(options.timeZone ? { timeZone: options.timeZone } : {}) }, io);
+async function profileReportSection(spec: BoardSpec, options: ReportCommandOptions, io: CliIo): Promise<ReportSection> {
+  const study = await computeProfileStudy(spec, options.profileData!, options.timeZone ? { timeZone: options.timeZone } : {}, io);
   const charts: { name: string; caption: string; svg: string }[] = [];
   const captions: Readonly<Record<string, string>> = {
     'currents.svg': 'Line and neutral currents over the period (band: lowest to highest in each column)',
@@ -45,7 +45,7 @@ export async function runReport(file: string, options: ReportCommandOptions, io:
   const correction = options.correction !== false && spec.correction?.arrangement ? correctBoard(board, spec.correction) : null;
   const wantsHarmonics = spec.harmonics !== undefined || spec.loads.some((l) => l.spectrum !== undefined);
   const harmonics = options.harmonics !== false && wantsHarmonics ? studyHarmonics(raw) : null;
-  const studySections = options.profileData ? [await profileReportSection(file, options, io)] : [];
+  const studySections = options.profileData ? [await profileReportSection(spec, options, io)] : [];
   const doc = buildBoardReport({ spec, result, correction, harmonics, studySections });
   if (format === 'html') {
     const html = renderReportHtml(doc, { footer });
