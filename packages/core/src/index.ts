@@ -192,3 +192,5 @@ export { checkHandFigures, addHandCapacitors } from './handCheck/checkHandFigure
 export { textbookWorking } from './handCheck/textbookWorking.js';
 export type { ScenarioReading, ScenarioResult } from './profile/studyScenarios.js';
 export { studyScenarios } from './profile/studyScenarios.js';
+export type { SwitchingFromBank } from './profile/switchingFromBank.js';
+export { switchingFromBank } from './profile/switchingFromBank.js';
