@@ -81,8 +81,20 @@ function stepsTable(sel: BankSelection): string {
   );
 }
 
+/** True when no capacitance meets the target at the low tolerance and stays within the bounds at the high one. */
+const emptyWindow = (s: BankSelection['selections'][number]) => s.maximumCapacitanceUF !== null && s.maximumCapacitanceUF < s.minimumCapacitanceUF;
+
+/** The two bounds of an empty window, with enough decimals that they read differently. */
+function emptyWindowNote(sel: BankSelection, s: BankSelection['selections'][number]): string {
+  const hi = s.maximumCapacitanceUF ?? 0;
+  let d = 1;
+  while (d < 4 && fixed(s.minimumCapacitanceUF, d) === fixed(hi, d)) d++;
+  const tol = sel.capacitanceTolerance;
+  return `${s.branch}: no capacitance satisfies both tolerance ends — meeting the target at −${tol.minusPercent} % needs at least ${fixed(s.minimumCapacitanceUF, d)} µF nominal, keeping every line within its bounds at +${tol.plusPercent} % allows at most ${fixed(hi, d)} µF`;
+}
+
 function branchTable(sel: BankSelection): string {
-  return renderTable(
+  const table = renderTable(
     [
       { header: 'branch', align: 'left' },
       { header: 'µF needed', align: 'left' },
@@ -94,7 +106,7 @@ function branchTable(sel: BankSelection): string {
     ],
     sel.selections.map((s) => [
       s.branch,
-      `${fixed(s.minimumCapacitanceUF, 1)} – ${s.maximumCapacitanceUF === null ? '?' : fixed(s.maximumCapacitanceUF, 1)}`,
+      emptyWindow(s) ? 'none (see below)' : `${fixed(s.minimumCapacitanceUF, 1)} – ${s.maximumCapacitanceUF === null ? '?' : fixed(s.maximumCapacitanceUF, 1)}`,
       fixed(s.designCapacitanceUF, 1),
       fixed(s.fixedCapacitanceUF, 1),
       fixed(s.designKvarAtAppliedV, 2),
@@ -102,6 +114,8 @@ function branchTable(sel: BankSelection): string {
       `${fixed(s.nominalV, 0)} / ${fixed(s.highestVoltageV, 0)} / ${fixed(s.requiredRatedV, 0)}`,
     ]),
   );
+  const notes = sel.selections.filter(emptyWindow).map((s) => emptyWindowNote(sel, s));
+  return notes.length ? `${table}\n${indentLines(notes)}` : table;
 }
 
 function controllerLines(c: ControllerSettings): string[] {

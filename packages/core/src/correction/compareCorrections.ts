@@ -19,6 +19,7 @@ import { correctBoard } from './correctBoard.js';
 import { kvarFromSusceptance } from './equipment.js';
 import type { CorrectionReport, CorrectionStatus } from './correctionResult.js';
 import { ARRANGEMENT_NAMES, comparisonWording } from './correctionWording.js';
+import { balanceWorsening } from './balanceWorsening.js';
 
 /** One arrangement's outcome in figures a reader compares. */
 export interface ArrangementFigures {
@@ -155,5 +156,11 @@ export function compareCorrections(board: Board, spec: unknown): CorrectionCompa
     others.map((o) => ({ name: ARRANGEMENT_NAMES[o.arrangement], status: o.report.status, cost: o.figures.cost, lossesKW: o.figures.lossesKW })),
     meetsTarget && near.length > 1,
   );
-  return { outcomes, recommended: chosen.arrangement, meetsTarget, why, rule: comparisonWording.rule };
+  // A verdict never hides that an arrangement makes the balance notably worse (see balanceWorsening).
+  const worse = [chosen, ...others].flatMap((o) => {
+    const changes = balanceWorsening(o.report.verification.before, o.report.verification.after);
+    return changes.length ? [comparisonWording.balanceWorse(ARRANGEMENT_NAMES[o.arrangement], o === chosen, changes)] : [];
+  });
+  const whyAll = worse.length ? `${why}; ${worse.join('; ')}` : why;
+  return { outcomes, recommended: chosen.arrangement, meetsTarget, why: whyAll, rule: comparisonWording.rule };
 }
