@@ -56,6 +56,8 @@ export { followNeutralBreak, withNeutralFault } from './analysis/followNeutralBr
 export type { NewtonOptions, NewtonOutcome } from './network/solveNetworkByNewton.js';
 export { solveNetworkByNewton } from './network/solveNetworkByNewton.js';
 export { WARNING_THRESHOLDS } from './analysis/boardWarnings.js';
+export { NOISE_FLOOR_RELATIVE } from './analysis/noiseFloor.js';
+export { SUPPLY_LIMITS } from './analysis/readSupplyState.js';
 
 // Correction
 export type {
@@ -173,6 +175,7 @@ export type { SequenceDiagramOptions } from './render/renderSequenceDiagram.js';
 export { renderSequenceDiagram } from './render/renderSequenceDiagram.js';
 export type { CurrentTriangleOptions, LineCurrentParts } from './render/renderCurrentTriangles.js';
 export { renderCurrentTriangles, lineCurrentParts } from './render/renderCurrentTriangles.js';
+export { renderImpedanceScan } from './render/renderImpedanceScan.js';
 export type { ReportDocument, ReportSection, ReportBlock, ReportColumn } from './render/report/reportDocument.js';
 export type { BoardReportInput } from './render/report/buildBoardReport.js';
 export { buildBoardReport } from './render/report/buildBoardReport.js';
@@ -180,6 +183,9 @@ export type { ReportHtmlOptions } from './render/report/renderReportHtml.js';
 export { renderReportHtml } from './render/report/renderReportHtml.js';
 export type { MarkdownReport } from './render/report/renderReportMarkdown.js';
 export { renderReportMarkdown } from './render/report/renderReportMarkdown.js';
+export type { ProfileChart } from './render/report/profileSection.js';
+export { profileSection } from './render/report/profileSection.js';
+export { harmonicsSection } from './render/report/harmonicsSection.js';
 
 // Checking hand calculations (trivar check)
 export type { HandFiguresSpec, HandCapacitorSpec, HandBranch } from './handCheck/handFiguresSpec.js';
