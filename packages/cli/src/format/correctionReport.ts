@@ -23,6 +23,10 @@ const arrow = (x: BeforeAfter, digits: number, unit = '') => `${fixed(x.before, 
 const senseWord = (s: string) => (s === 'lagging' ? 'lag' : s === 'leading' ? 'lead' : '');
 const indentLines = (lines: readonly string[]) => lines.map((l) => wrapText(l, '  ', '    ')).join('\n');
 
+
+/** A PF to 3 decimals; a line with no current has none. */
+const pfFigure = (pf: number | null): string => (pf === null ? 'no current' : fixed(pf, 3));
+
 function elementText(b: BranchSizing): string {
   if (b.element === 'none') return '-';
   if (b.element === 'capacitor') return `C ${fixed(b.capacitanceUF ?? 0, 1)} µF`;
@@ -156,7 +160,7 @@ function lineTable(v: CorrectionVerification): string {
       arrow(l.currentA, 1),
       arrow(l.activeCurrentA, 1),
       arrow(l.reactiveCurrentA, 1),
-      `${fixed(l.pf.before, 3)} ${senseWord(l.sense.before)} → ${fixed(l.pf.after, 3)} ${senseWord(l.sense.after)}`.replace(/ +/g, ' ').trim(),
+      `${pfFigure(l.pf.before)} ${senseWord(l.sense.before)} → ${pfFigure(l.pf.after)} ${senseWord(l.sense.after)}`.replace(/ +/g, ' ').trim(),
     ]),
   );
 }
@@ -206,7 +210,7 @@ function checksBlock(v: CorrectionVerification): string {
   );
   if (v.lightLoad) {
     const ll = v.lightLoad;
-    const lines = ll.lines.map((l) => `${l.phase} ${fixed(l.pf, 3)} ${senseWord(l.sense)}`.trim()).join(', ');
+    const lines = ll.lines.map((l) => `${l.phase} ${pfFigure(l.pf)} ${senseWord(l.sense)}`.trim()).join(', ');
     out.push(
       `light load (${fixed(ll.fraction * 100, 0)} % of the loads, fixed part ${fixed(ll.fixedKvar, 2)} kvar only): ${lines || 'no lines'}${ll.ok ? ' — no line leads' : ` — LEADS on ${ll.leadingLines.join(', ')}`}; voltage rise ${fixed(ll.voltageRise.solvedPercent, 2)} %`,
     );
@@ -232,7 +236,7 @@ function compensatorBlock(c: CompensatorSizing, ideal: CorrectionVerification | 
     `  ideal solution (may need reactors), re-solved:`,
     sizingTable(c.ideal.branches),
     indentLines([res('ideal residual', c.ideal)]),
-    ideal ? `  ideal solution verified: lines ${ideal.lines.map((l) => `${l.phase} ${fixed(l.pf.after, 3)}`).join(', ')}` : '',
+    ideal ? `  ideal solution verified: lines ${ideal.lines.map((l) => `${l.phase} ${pfFigure(l.pf.after)}`).join(', ')}` : '',
     '',
     indentLines(['best capacitor-only solution (least remaining unbalance and reactive error, no line made to lead):']),
     sizingTable(c.capacitorOnly.branches),

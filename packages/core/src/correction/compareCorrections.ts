@@ -84,7 +84,7 @@ function figuresOf(r: CorrectionReport): ArrangementFigures {
   const v = r.verification;
   const sel = r.selection;
   const reactorKvar = v.equipment.flatMap((g) => g.branches).reduce((s, b) => s + (b.susceptanceS < 0 ? Math.abs(kvarFromSusceptance(b.susceptanceS, b.vNominal)) : 0), 0);
-  const lowest = v.after.phases.reduce((a, p) => (p.kVA > 0 && p.pf < a ? p.pf : a), 1);
+  const lowest = v.after.phases.reduce((a, p) => (p.pf !== null && p.pf < a ? p.pf : a), 1);
   const def = r.target.definition;
   const pf = v.powerFactor;
   const targetPfAfter =

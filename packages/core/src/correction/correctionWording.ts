@@ -26,7 +26,7 @@ export function distinctDigits(value: number, bound: number, digits = 3): [strin
   return [value.toFixed(d), bound.toFixed(digits)];
 }
 const f1 = (x: number) => x.toFixed(1);
-const pfText = (pf: number, sense: PowerFactorSense) => (sense === 'unity' ? '1.000' : `${f3(pf)} ${sense}`);
+const pfText = (pf: number | null, sense: PowerFactorSense) => (pf === null ? 'no current (no PF)' : sense === 'unity' ? '1.000' : `${f3(pf)} ${sense}`);
 
 export const TARGET_STATEMENTS: Record<TargetDefinition, string> = {
   'per-line':
@@ -38,15 +38,17 @@ export const TARGET_STATEMENTS: Record<TargetDefinition, string> = {
 };
 
 export const targetShortfall = {
-  lineBelow: (phase: PhaseId, pf: number, sense: PowerFactorSense, min: number) => {
+  lineBelow: (phase: PhaseId, pf: number | null, sense: PowerFactorSense, min: number) => {
+    if (pf === null) return `line ${phase} carries no current (no PF)`;
     const [v, m] = distinctDigits(pf, min);
     return `line ${phase} is at ${sense === 'unity' ? v : `${v} ${sense}`}, below the target ${m} lagging`;
   },
-  lineLeadsMore: (phase: PhaseId, pf: number, pfBefore: number) => {
+  lineLeadsMore: (phase: PhaseId, pf: number | null, pfBefore: number | null) => {
+    if (pf === null || pfBefore === null) return `line ${phase} led before and the equipment makes it lead more`;
     const [v, b] = distinctDigits(pf, pfBefore);
     return `line ${phase} led at ${b} before and the equipment makes it lead more (${v} leading)`;
   },
-  lineBeyond: (phase: PhaseId, pf: number, sense: PowerFactorSense, t: TargetWords) =>
+  lineBeyond: (phase: PhaseId, pf: number | null, sense: PowerFactorSense, t: TargetWords) =>
     t.maxLaggingPf !== null && t.definition === 'per-line'
       ? `line ${phase} is at ${pfText(pf, sense)}, past the upper bound ${f3(t.maxLaggingPf)} lagging`
       : t.leading === 'never'
@@ -67,6 +69,7 @@ export const infeasibleReason = {
   alreadyLeading: (phases: readonly PhaseId[]) =>
     `line${phases.length > 1 ? 's' : ''} ${phases.join(', ')} already lead${phases.length > 1 ? '' : 's'} before correction: capacitors cannot help there, a reactor would be needed`,
   exporting: 'the board exports active power, so a power-factor target has no meaning for it',
+  noLoad: 'the board draws no active power (every load is zero or off), so there is nothing to correct',
   capacitorsCannotReach: (shortfalls: readonly string[]) =>
     `no capacitor-only bank of this arrangement meets the target without breaking a bound; the best reachable leaves: ${shortfalls.join('; ')}`,
   notConverged: (iterations: number, change: number) =>

@@ -91,8 +91,8 @@ export function correctionSection(report: CorrectionReport): ReportSection {
       fixed(l.currentA.after, 1),
       `${fixed(l.activeCurrentA.before, 1)} → ${fixed(l.activeCurrentA.after, 1)}`,
       `${fixed(l.reactiveCurrentA.before, 1)} → ${fixed(l.reactiveCurrentA.after, 1)}`,
-      `${fixed(l.pf.before, 3)} ${l.sense.before === 'leading' ? 'lead' : l.sense.before === 'lagging' ? 'lag' : ''}`.trim(),
-      `${fixed(l.pf.after, 3)} ${l.sense.after === 'leading' ? 'lead' : l.sense.after === 'lagging' ? 'lag' : ''}`.trim(),
+      `${l.pf.before === null ? '—' : fixed(l.pf.before, 3)} ${l.sense.before === 'leading' ? 'lead' : l.sense.before === 'lagging' ? 'lag' : ''}`.trim(),
+      `${l.pf.after === null ? '—' : fixed(l.pf.after, 3)} ${l.sense.after === 'leading' ? 'lead' : l.sense.after === 'lagging' ? 'lag' : ''}`.trim(),
     ]),
     note: 'Active and reactive parts of each line current, along and across its own line-to-neutral voltage (reactive above zero is lagging).',
   });
