@@ -221,6 +221,15 @@ const CASES: Case[] = [
     prints: [/draws no active power/],
     neverPrints: [/exports active power/],
   },
+  // 10. a target just below 1 is not shown as 1.000
+  {
+    name: 'a target of 0.9999999 reads as itself',
+    args: () => ['correct', 'examples/riverside-cold-store.yaml', '--pf', '0.9999999'],
+    code: 5,
+    says: [],
+    prints: [/PF ≥ 0\.9999999/],
+    neverPrints: [/PF ≥ 1\.000/],
+  },
 ];
 
 describe('hostile input: exit code, no stack trace, bounded memory, a message that names the field or file', () => {
