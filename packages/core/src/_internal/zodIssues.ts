@@ -37,6 +37,14 @@ function valueAt(root: unknown, path: readonly PropertyKey[]): unknown {
 export function inputIssuesFromZod(issues: readonly core.$ZodIssue[], root: unknown, prefix: readonly PropertyKey[] = []): InputIssue[] {
   return issues.flatMap((issue) => {
     const path = [...prefix, ...issue.path];
+    // A value that fits none of a union's forms: report the form it came closest to
+    // (fewest problems, and not one whose very keys or type are wrong).
+    if (issue.code === 'invalid_union' && issue.errors.length > 0) {
+      const score = (branch: readonly core.$ZodIssue[]) =>
+        branch.length + 100 * branch.filter((i) => i.path.length === 0 && (i.code === 'unrecognized_keys' || i.code === 'invalid_type')).length;
+      const closest = [...issue.errors].sort((a, b) => score(a) - score(b))[0]!;
+      return inputIssuesFromZod(closest, valueAt(root, issue.path), path);
+    }
     if (issue.code === 'unrecognized_keys')
       return issue.keys.map((key) => inputIssue('unknown_key', formatPath([...path, key]), 'only the documented keys (see the board JSON Schema)', key));
     const received = valueAt(root, issue.path);

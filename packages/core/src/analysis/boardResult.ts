@@ -151,7 +151,11 @@ export interface BoardResult {
   readonly loads: readonly LoadReading[];
   /** Sum of the loads. */
   readonly totals: PowerReading;
-  /** Delivered by the source EMFs (= totals + losses). */
+  /**
+   * Delivered by the source EMFs (= totals + losses). On a sub-board of an installation:
+   * what its feeder takes from the board feeding it (= totals + its feeder's losses +
+   * what it passes on to the boards it feeds).
+   */
   readonly source: { readonly kW: number; readonly kvar: number };
   readonly losses: LossReading;
   readonly sequences: { readonly voltage: SequenceSet<Phasor>; readonly current: SequenceSet<Phasor> } | null;
