@@ -48,7 +48,7 @@ const PHASE_NODE = { A: 'a', B: 'b', C: 'c' } as const;
 const num = (x: number) => x.toExponential(16);
 
 /** Lines for R + jX between two nodes; an element smaller than 1e-13 of |Z| is left out (an exact short of it). */
-function seriesElements(name: string, from: string, to: string, z: ComplexValue, omega: number): string[] {
+export function seriesElements(name: string, from: string, to: string, z: ComplexValue, omega: number): string[] {
   const size = cAbs(z);
   const parts: [string, string][] = [];
   if (Math.abs(z.re) > 1e-13 * size) parts.push(['R', num(z.re)]);
@@ -63,7 +63,7 @@ function seriesElements(name: string, from: string, to: string, z: ComplexValue,
 }
 
 /** Lines for G ‖ jB between two nodes. */
-function parallelElements(name: string, from: string, to: string, y: ComplexValue, omega: number): string[] {
+export function parallelElements(name: string, from: string, to: string, y: ComplexValue, omega: number): string[] {
   const size = cAbs(y);
   const lines: string[] = [];
   if (Math.abs(y.re) > 1e-13 * size) lines.push(`R${name} ${from} ${to} ${num(1 / y.re)}`);

@@ -55,7 +55,7 @@ export function describeConductor(c: ConductorSpec | undefined, feeder: FeederSp
   const metal = materialOf(c) === 'copper' ? 'Cu' : 'Al';
   const set = (c.parallel ?? 1) > 1 ? ` ×${c.parallel}` : '';
   const len = length === null ? '' : c.lengthFt !== undefined || (c.lengthM === undefined && feeder?.lengthFt !== undefined) ? `, ${Math.round(length / METRES_PER_FOOT)} ft` : `, ${+length.toFixed(1)} m`;
-  return `${r?.label ?? '?'} ${metal}${set}${len} at ${r?.temperatureC ?? '?'} °C`;
+  return `${r?.label ?? '?'} ${metal}${set}${len} at ${r ? +r.temperatureC.toFixed(1) : '?'} °C`;
 }
 
 export interface FeederModel {
