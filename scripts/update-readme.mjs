@@ -6,6 +6,7 @@ import { readFileSync, writeFileSync } from 'node:fs';
 const blocks = [
   ['demo-output', ['solve', 'examples/corner-bakery.yaml']],
   ['correct-output', ['correct', 'examples/riverside-cold-store.yaml']],
+  ['installation-output', ['solve', 'examples/maple-court-riser.yaml']],
 ];
 let readme = readFileSync('README.md', 'utf8');
 for (const [marker, args] of blocks) {

@@ -15,6 +15,11 @@ describe('README', () => {
     const shown = block.replace(/^\s*```text\n/, '').replace(/```\s*$/, '');
     expect(shown.trimEnd()).toBe(runTrivar(['correct', 'examples/riverside-cold-store.yaml']).stdout.trimEnd());
   });
+  it('installation output block matches `trivar solve examples/maple-court-riser.yaml`', () => {
+    const block = readme.split('<!-- installation-output:start -->')[1]!.split('<!-- installation-output:end -->')[0]!;
+    const shown = block.replace(/^\s*```text\n/, '').replace(/```\s*$/, '');
+    expect(shown.trimEnd()).toBe(runTrivar(['solve', 'examples/maple-court-riser.yaml']).stdout.trimEnd());
+  });
   it.each(['quickstart.ts', 'correction-quickstart.ts'])('shows examples/%s as it is', (file) => {
     const source = readFileSync(`${ROOT}examples/${file}`, 'utf8');
     expect(readme).toContain(source.slice(source.indexOf('import {')).trimEnd());

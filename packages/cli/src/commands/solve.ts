@@ -1,16 +1,37 @@
-/** `trivar solve`: read a board, solve it, print the report or JSON. */
-import { readBoardText, solveBoard, type BoardResult } from '@trivar/core';
+/** `trivar solve`: read a board or installation file, solve it, print the report or JSON. */
+import { InputError, isInstallationInput, readBoardText, solveBoard, solveInstallation, type BoardResult, type InstallationResult } from '@trivar/core';
 import type { CliIo } from '../io.js';
 import { renderSolveReport } from '../format/solveReport.js';
+import { renderInstallationReport } from '../format/installationReport.js';
 
 export interface SolveCommandOptions {
   readonly json?: boolean;
   readonly openNeutral?: boolean;
+  /** Installation files: boards whose full report to show. */
+  readonly board?: readonly string[];
+  readonly allBoards?: boolean;
 }
 
-export async function runSolve(file: string, options: SolveCommandOptions, io: CliIo): Promise<BoardResult> {
+export async function runSolve(file: string, options: SolveCommandOptions, io: CliIo): Promise<BoardResult | InstallationResult> {
   const text = await io.readSource(file);
-  const result = solveBoard(readBoardText(text), options.openNeutral ? { openNeutral: true } : {});
-  io.stdout(options.json ? `${JSON.stringify(result, null, 2)}\n` : renderSolveReport(result));
+  const input = readBoardText(text);
+  const solveOptions = options.openNeutral ? { openNeutral: true } : {};
+  if (!isInstallationInput(input)) {
+    if (options.board?.length || options.allBoards)
+      throw new InputError([{ code: 'not_applicable', path: '', expected: 'an installation file (with boards:) for --board and --all-boards', message: '--board and --all-boards apply to installation files (with boards:), and this is a single board' }], 'the options do not fit the file');
+    const result = solveBoard(input, solveOptions);
+    io.stdout(options.json ? `${JSON.stringify(result, null, 2)}\n` : renderSolveReport(result));
+    return result;
+  }
+  const result = solveInstallation(input, solveOptions);
+  const names = result.boards.map((b) => b.name);
+  const unknown = (options.board ?? []).filter((n) => !names.includes(n));
+  if (unknown.length)
+    throw new InputError(
+      unknown.map((n) => ({ code: 'unknown_board', path: '', expected: `a board of this installation: ${names.map((x) => JSON.stringify(x)).join(', ')}`, received: JSON.stringify(n), message: `--board: expected a board of this installation: ${names.map((x) => JSON.stringify(x)).join(', ')} (received ${JSON.stringify(n)})` })),
+      'the options do not fit the file',
+    );
+  const detailed = options.allBoards ? names : names.filter((n) => options.board?.includes(n));
+  io.stdout(options.json ? `${JSON.stringify(result, null, 2)}\n` : renderInstallationReport(result, { detailed }));
   return result;
 }

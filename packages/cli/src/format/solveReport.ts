@@ -90,7 +90,7 @@ function loadTable(r: BoardResult): string {
       fixed(l.currentA, 1),
       fixed(l.kW, 2),
       fixed(l.kvar, 2),
-      pfText(l),
+      `${pfText(l)}${l.pfAssumed ? ' *' : ''}`,
     ];
   });
   return renderTable(
@@ -106,7 +106,7 @@ function loadTable(r: BoardResult): string {
       { header: 'PF', align: 'left' },
     ],
     rows,
-  );
+  ) + (r.loads.some((l) => l.pfAssumed) ? '\n  (* pf not given in the file: taken as 1, a resistive load)' : '');
 }
 
 function sequenceBlock(r: BoardResult): string {

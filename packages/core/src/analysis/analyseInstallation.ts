@@ -40,7 +40,7 @@ export function analyseInstallation(solution: InstallationSolution, options: Ana
     return {
       board: nameOf(b),
       from: parent === null ? null : nameOf(parent),
-      description: b === 0 ? null : installation.subBoards[b - 1]!.feeder.description,
+      description: b === 0 ? (installation.serviceFeederDescription ?? null) : installation.subBoards[b - 1]!.feeder.description,
       lines,
       neutral: r.neutral ? { current: r.neutral.current, loadingPercent: r.neutral.loadingPercent, open: s.board.neutralOpen } : null,
       lossesKW: r.losses.totalKW,

@@ -74,6 +74,8 @@ export interface LoadReading extends PowerReading {
   /** Floating star point: its voltage to the centroid of the line voltages, V. */
   readonly starPointShift: Phasor | null;
   readonly energised: boolean;
+  /** Present when the board file gave kW without pf: pf 1 (resistive) was taken. */
+  readonly pfAssumed?: true;
 }
 
 export interface UnbalanceReading {

@@ -41,6 +41,8 @@ export interface BoardLoad {
   readonly branches: readonly LoadBranch[];
   /** Where the load came from: the board file, or equipment a study added. */
   readonly origin: 'board' | 'added';
+  /** True when the file gave kW without pf, so pf 1 (a resistive load) was taken. */
+  readonly pfAssumed?: boolean;
 }
 
 export interface Board {
@@ -129,4 +131,6 @@ export interface Installation {
   readonly name: string;
   readonly main: Board;
   readonly subBoards: readonly SubBoard[];
+  /** The service cable in words when sized from the cable library. */
+  readonly serviceFeederDescription?: string | null;
 }

@@ -11,7 +11,7 @@ import { isPerPhaseLine, lengthOf, materialOf, sizeOf } from './feederModel.js';
 
 type Rule = (board: BoardSpec) => InputIssue[];
 
-const RATING_FORMS = 'exactly one rating: kW with pf, kVA with pf, A with pf, kW with kvar, or ohms';
+const RATING_FORMS = 'exactly one rating: kW (pf 1 when not given), kW with pf, kVA with pf, A with pf, kW with kvar, or ohms';
 
 function ruleVoltageGiven(board: BoardSpec): InputIssue[] {
   const { lineToLine, lineToNeutral } = board.supply.voltage;
@@ -140,7 +140,7 @@ function ruleUnequalSource(board: BoardSpec): InputIssue[] {
 function ratingIssues(load: LoadSpec, path: string): InputIssue[] {
   const has = (v: unknown) => v !== undefined;
   const forms = [
-    has(load.kW) && has(load.pf) && !has(load.kvar),
+    has(load.kW) && !has(load.kvar) && !has(load.kVA) && !has(load.A),
     has(load.kVA) && has(load.pf),
     has(load.A) && has(load.pf),
     has(load.kW) && has(load.kvar) && !has(load.pf),
@@ -148,7 +148,8 @@ function ratingIssues(load: LoadSpec, path: string): InputIssue[] {
   ].filter(Boolean).length;
   const given = (['kW', 'kvar', 'kVA', 'A', 'pf', 'ohms'] as const).filter((k) => has(load[k]));
   const issues: InputIssue[] = [];
-  if (forms !== 1 || given.length !== (has(load.ohms) ? 1 : 2))
+  const kWAlone = has(load.kW) && given.length === 1;
+  if (forms !== 1 || (!kWAlone && given.length !== (has(load.ohms) ? 1 : 2)))
     issues.push(inputIssue('rating', path, RATING_FORMS, given.length ? given.join(' + ') : 'no rating'));
   if (load.sense !== undefined && load.pf === undefined)
     issues.push(inputIssue('not_applicable', `${path}.sense`, 'sense only together with pf', load.sense));

@@ -110,7 +110,8 @@ function loadBranches(load: LoadSpec, index: number, spec: BoardSpec, ln: number
   ): BoardLoad => {
     const share = scale(total, 1 / pairs.length);
     const branches: LoadBranch[] = pairs.map(([from, to]) => ({ from, to, sNominal: share, vNominal, zip }));
-    return { name: load.name, connection: load.connection, model, branches, origin: 'board' };
+    const pfAssumed = load.kW !== undefined && load.pf === undefined && load.kvar === undefined;
+    return { name: load.name, connection: load.connection, model, branches, origin: 'board', ...(pfAssumed ? { pfAssumed } : {}) };
   };
   const c = load.connection;
   if (c === 'ABC-star') {

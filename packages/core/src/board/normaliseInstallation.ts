@@ -27,5 +27,6 @@ export function normaliseInstallation(spec: InstallationSpec): { installation: I
       loads: normaliseBoard(boardSpecOf(spec, i)).loads,
     };
   });
-  return { installation: { name: spec.name ?? main.name, main, subBoards }, boardNumber };
+  const serviceFeederDescription = feederModel(spec.boards[mainIndex]!.feeder, main.phases).description;
+  return { installation: { name: spec.name ?? main.name, main, subBoards, serviceFeederDescription }, boardNumber };
 }
