@@ -19,6 +19,7 @@ const board = normaliseBoard(
 const report = correctBoard(board, { arrangement: 'delta-bank', target: { pf: 0.95 } });
 
 export const status = report.status; //=> "meets-target"
-export const installedKvar = report.selection!.installedKvar.toFixed(2); //=> "24.50"
-export const linePfAfter = report.verification.lines.map((l) => l.pf.after.toFixed(3)); //=> ["0.970","0.962","0.974"]
+export const deliveredKvar = report.selection!.deliveredKvar.toFixed(2); //=> "19.85"
+export const nameplateKvar = report.selection!.nameplateKvar.toFixed(2); //=> "24.17"
+export const linePfAfter = report.verification.lines.map((l) => l.pf.after.toFixed(3)); //=> ["0.972","0.979","0.968"]
 export const neutralAmps = report.verification.neutralCurrentA!.after.toFixed(1); //=> "29.9"

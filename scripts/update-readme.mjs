@@ -7,6 +7,7 @@ const blocks = [
   ['demo-output', ['solve', 'examples/corner-bakery.yaml']],
   ['correct-output', ['correct', 'examples/riverside-cold-store.yaml']],
   ['installation-output', ['solve', 'examples/maple-court-riser.yaml']],
+  ['check-output', ['check', 'examples/riverside-cold-store.yaml', 'examples/hand-figures/riverside-cold-store.yaml']],
 ];
 let readme = readFileSync('README.md', 'utf8');
 for (const [marker, args] of blocks) {
@@ -20,3 +21,11 @@ for (const [marker, args] of blocks) {
   readme = `${head}${start}\n\`\`\`text\n${out}\n\`\`\`\n${end}${tail}`;
 }
 writeFileSync('README.md', readme);
+
+// Drawings the README shows, made by the tool itself (test/examples/readmeImages.test.ts checks them).
+const images = [['docs/riverside-cold-store-correction.svg', ['diagram', 'examples/riverside-cold-store.yaml', '--with-correction']]];
+for (const [file, args] of images) {
+  const run = spawnSync(process.execPath, ['packages/cli/bin/trivar.js', ...args], { encoding: 'utf8' });
+  if (run.status !== 0) throw new Error(`trivar ${args.join(' ')} failed: ${run.stderr}`);
+  writeFileSync(file, run.stdout);
+}

@@ -33,7 +33,7 @@ const cases: { name: string; board: Board; spec: unknown; code: string; path: st
   { name: 'empty catalogue', board: fourWire, spec: { arrangement: 'star-bank', catalogue: [] }, code: 'out_of_range', path: 'catalogue' },
   { name: 'unit with no rating', board: fourWire, spec: { arrangement: 'star-bank', catalogue: [{ ratedV: 440, ratedHz: 50 }] }, code: 'missing', path: 'catalogue[0].ratedKvar' },
   { name: 'unit at 55 Hz', board: fourWire, spec: { arrangement: 'star-bank', catalogue: [{ ratedKvar: 5, ratedV: 440, ratedHz: 55 }] }, code: 'invalid_value', path: 'catalogue[0].ratedHz' },
-  { name: 'delta bank on a split-phase board', board: splitPhase, spec: { arrangement: 'delta-bank' }, code: 'not_applicable', path: 'arrangement' },
+  { name: 'balancing compensator on a split-phase board', board: splitPhase, spec: { arrangement: 'balancing-compensator' }, code: 'not_applicable', path: 'arrangement' },
   { name: 'effective PF on a split-phase board', board: splitPhase, spec: { arrangement: 'star-bank', target: { definition: 'effective' } }, code: 'not_applicable', path: 'target.definition' },
   { name: 'per-phase target for a missing phase', board: splitPhase, spec: { arrangement: 'star-bank', target: { perPhase: { C: 0.9 } } }, code: 'unknown_phase', path: 'target.perPhase.C' },
   { name: 'per-phase targets with a board-wide definition', board: fourWire, spec: { arrangement: 'star-bank', target: { definition: 'vector', perPhase: { A: 0.9 } } }, code: 'not_applicable', path: 'target.perPhase' },
@@ -45,7 +45,6 @@ const cases: { name: string; board: Board; spec: unknown; code: string; path: st
   { name: 'light-load fraction above 1', board: fourWire, spec: { arrangement: 'star-bank', lightLoad: { fraction: 1.5 } }, code: 'out_of_range', path: 'lightLoad.fraction' },
   { name: 'unknown key', board: fourWire, spec: { arrangement: 'star-bank', colour: 'red' }, code: 'unknown_key', path: 'colour' },
   { name: 'unknown arrangement', board: fourWire, spec: { arrangement: 'triangle' }, code: 'invalid_value', path: 'arrangement' },
-  { name: 'no arrangement', board: fourWire, spec: {}, code: 'missing', path: 'arrangement' },
 ];
 
 describe('correction spec: table of bad inputs (code and path exact, wording loose)', () => {
@@ -61,6 +60,11 @@ describe('correction spec: table of bad inputs (code and path exact, wording loo
     });
   }
 
+  it('correctBoard needs an arrangement (a study without one is for compareCorrections)', () => {
+    expect(issuesOf(() => correctBoard(fourWire, {}))).toEqual([expect.objectContaining({ code: 'missing', path: 'arrangement' })]);
+    expect(validateCorrectionSpec({}, fourWire).ok).toBe(true);
+  });
+
   it('every problem is reported in one pass', () => {
     const issues = issuesOf(() => correctBoard(fourWire, { arrangement: 'star-bank', target: { pf: 0.95, maxLaggingPf: 0.9, minLeadingPf: 0.8 }, share: 'equal' }));
     expect(issues.map((i) => i.path).sort()).toEqual(['share', 'target.maxLaggingPf', 'target.minLeadingPf']);
@@ -73,16 +77,15 @@ describe('correction spec: table of bad inputs (code and path exact, wording loo
 });
 
 describe('units that cannot take the applied voltage', () => {
-  it('a catalogue rated below the applied voltage plus margin is an error naming the catalogue', () => {
-    // A delta bank on 400 V needs ≥ 440 V units with the 10 % margin.
-    const issues = issuesOf(() =>
-      correctBoard(threeWire, { arrangement: 'delta-bank', catalogue: [{ name: 'C-400-5', ratedKvar: 5, ratedV: 400, ratedHz: 50 }] }),
-    );
-    expect(issues).toEqual([expect.objectContaining({ code: 'out_of_range', path: 'catalogue' })]);
-    expect(issues[0]!.message).toMatch(/at least one unit rated 44\d\.\d V/);
+  it('a catalogue rated below the nominal voltage plus margin: no suitable units, and the reason names the voltage and the catalogue', () => {
+    // A delta bank on 400 V (IEC practice, 50 Hz) needs ≥ 440 V units with the 10 % margin.
+    const report = correctBoard(threeWire, { arrangement: 'delta-bank', catalogue: [{ name: 'C-400-5', ratedKvar: 5, ratedV: 400, ratedHz: 50 }] });
+    expect(report.status).toBe('no-suitable-units');
+    expect(report.selection!.unbuildable!.requiredRatedV).toBeCloseTo(440, 9);
+    expect(report.reasons.join(' ')).toMatch(/no unit in the the catalogue given \(catalogue\) fits A-B, B-C, C-A: a unit there must be rated at least 440\.0 V/);
   });
 
-  it('units rated too low next to usable ones are left out, with a warning naming each', () => {
+  it('units rated too low next to usable ones are left out', () => {
     const report = correctBoard(threeWire, {
       arrangement: 'delta-bank',
       catalogue: [
@@ -90,14 +93,15 @@ describe('units that cannot take the applied voltage', () => {
         { name: 'C-480-2', ratedKvar: 2, ratedV: 480, ratedHz: 50 },
       ],
     });
-    expect(report.selection!.selections.every((s) => s.unit!.name === 'C-480-2')).toBe(true);
-    expect(report.warnings).toContainEqual(expect.objectContaining({ code: 'unit-voltage-low', path: 'catalogue[0].ratedV' }));
+    expect(report.selection!.steps.length).toBeGreaterThan(0);
+    expect(report.selection!.steps.every((s) => s.unit.name === 'C-480-2')).toBe(true);
   });
 
   it('a smaller voltage margin may be asked for explicitly', () => {
     const report = correctBoard(threeWire, { arrangement: 'delta-bank', voltageMarginPercent: 0, catalogue: [{ name: 'C-400-5', ratedKvar: 5, ratedV: 400, ratedHz: 50 }] });
-    // With no margin the unit is used right at the (solved) applied voltage, so the rating still has to cover it.
+    // With no margin the rating covers the nominal voltage, and the solved voltage stays within 110 % of it.
     expect(report.selection!.selections[0]!.requiredRatedV).toBeCloseTo(400, 6);
+    expect(report.selection!.unbuildable).toBeNull();
   });
 });
 

@@ -1,11 +1,13 @@
 /**
  * Capacitor units at the voltage and frequency they are used at, the built-in
- * typical list, and the choice of units for a bank.
- * Source: Q = Q_r·(V/V_r)²·(f/f_r) from Q = 2πf·C·V² (methods notes §4, "Output vs
- * voltage/frequency"); capacitance tolerance −5/+10 % of IEC 60831-1 (from memory).
+ * typical catalogues, how a bank is built from them, and the controller settings.
+ * Sources: Q = Q_r·(V/V_r)²·(f/f_r) from Q = 2πf·C·V² (methods notes §4);
+ * capacitance tolerance −5/+10 % of IEC 60831-1 (from memory); C/k = Q_step/(√3·U·k)
+ * (methods notes §10, common practice, from memory); voltage margins by practice
+ * (methods notes §10, common practice, no source).
  */
 import { describe, expect, it } from 'vitest';
-import { capacitorOutput, selectBankUnits, sizeDeltaBank, sizeStarBank, TYPICAL_CAPACITOR_UNITS } from '@trivar/core';
+import { capacitorOutput, correctBoard, responseThresholdA, selectBankUnits, sizeDeltaBank, sizeStarBank, standardCtPrimaryA, TYPICAL_CATALOGUES } from '@trivar/core';
 import { makeBoard } from './support/boards.js';
 import { expectClose } from '../support/tolerance.js';
 
@@ -30,13 +32,91 @@ describe('capacitor output follows the square law (methods notes §4)', () => {
     expectClose(out.capacitanceUF, (10000 / (2 * Math.PI * 50 * 400 ** 2)) * 1e6, exact, 'µF');
     expectClose(out.capacitanceUF, 198.94367886, { rel: 1e-9, abs: 0 }, 'µF (worked)');
   });
+});
 
-  it('the typical list holds the rated voltages of the methods notes (plus 280 V for 230 V star banks), each unit marked typical', () => {
-    const volts50 = [...new Set(TYPICAL_CAPACITOR_UNITS.filter((u) => u.ratedHz === 50).map((u) => u.ratedV))];
-    const volts60 = [...new Set(TYPICAL_CAPACITOR_UNITS.filter((u) => u.ratedHz === 60).map((u) => u.ratedV))];
-    expect(volts50).toEqual([280, 400, 415, 440, 480, 525, 690]);
-    expect(volts60).toEqual([240, 480, 600]);
-    for (const u of TYPICAL_CAPACITOR_UNITS) expect(u.name).toMatch(/^typical /);
+describe('typical catalogues (typical catalogue practice, not any vendor; from memory)', () => {
+  const volts = (practice: 'iec' | 'north-american', kind: string) => [
+    ...new Set(TYPICAL_CATALOGUES[practice].units.filter((u) => u.kind === kind).map((u) => u.ratedV)),
+  ];
+  it('IEC: three-phase units 400/415/440/480/525 V at 50 Hz; North-American: 208/240/480/600 V at 60 Hz; every unit marked typical', () => {
+    expect(volts('iec', 'three-phase')).toEqual([400, 415, 440, 480, 525]);
+    expect(volts('north-american', 'three-phase')).toEqual([208, 240, 480, 600]);
+    expect(TYPICAL_CATALOGUES.iec.units.every((u) => u.ratedHz === 50)).toBe(true);
+    expect(TYPICAL_CATALOGUES['north-american'].units.every((u) => u.ratedHz === 60)).toBe(true);
+    for (const c of Object.values(TYPICAL_CATALOGUES)) for (const u of c.units) expect(u.name).toMatch(/^typical /);
+  });
+});
+
+/** One delta bank per board; the unit voltage the practice should pick. */
+const TABLE: readonly { name: string; lineToLine: number; hz: 50 | 60; ratedV: number; margin: number; practice: string }[] = [
+  // North-American practice: units at their nameplate voltage (margin 0).
+  { name: '120/208 V office panel', lineToLine: 208, hz: 60, ratedV: 208, margin: 0, practice: 'north-american' },
+  { name: '277/480 V plant', lineToLine: 480, hz: 60, ratedV: 480, margin: 0, practice: 'north-american' },
+  { name: '347/600 V plant', lineToLine: 600, hz: 60, ratedV: 600, margin: 0, practice: 'north-american' },
+  // IEC practice: 10 % above the nominal voltage.
+  { name: '230/400 V workshop', lineToLine: 400, hz: 50, ratedV: 440, margin: 10, practice: 'iec' },
+  { name: '240/415 V works', lineToLine: 415, hz: 50, ratedV: 480, margin: 10, practice: 'iec' },
+];
+
+describe('unit voltage by practice (table: IEC and North-American boards)', () => {
+  for (const row of TABLE) {
+    it(`${row.name}: ${row.ratedV} V units, ${row.margin} % margin, every unit at or above the delivery floor`, () => {
+      const board = makeBoard('three-phase-4wire', [{ name: 'motors', connection: 'ABC-delta', kW: 60, pf: 0.78 }], {
+        lineToLine: row.lineToLine,
+        frequencyHz: row.hz,
+        transformer: { kVA: 500, impedancePercent: 5, xOverR: 5 },
+      });
+      const report = correctBoard(board, { arrangement: 'delta-bank', target: { pf: 0.95 } });
+      expect(report.status).toBe('meets-target');
+      const sel = report.selection!;
+      expect(sel.practice).toBe(row.practice);
+      expect(sel.voltageMarginPercent).toBe(row.margin);
+      for (const step of sel.steps) {
+        expect(step.unit.ratedV).toBe(row.ratedV);
+        expect(step.unit.deliveredFraction).toBeGreaterThanOrEqual(0.65);
+        expect(step.unit.source).toBe('typical');
+      }
+      // Equal three-phase steps on a balanced board: one controller reading one CT.
+      expect(sel.steps.every((s) => s.kind === 'three-phase' && s.unit.kind === 'three-phase')).toBe(true);
+      expect(sel.controller!.measurement).toBe('one-line');
+      // Headline: delivered at the solved voltage is what the square law gives from the nameplate.
+      const delivered = sel.steps.reduce((sum, s) => sum + s.nameplateKvar * s.unit.deliveredFraction, 0);
+      expectClose(sel.deliveredKvar, delivered, { rel: 1e-6, abs: 0 }, 'delivered');
+    });
+  }
+
+  it('a 480 V board taken as IEC practice (+10 %) would need 600 V units at 64 % output: below the floor, so none fits', () => {
+    const board = makeBoard('three-phase-3wire', [{ name: 'motors', connection: 'ABC-delta', kW: 60, pf: 0.78 }], { lineToLine: 480, frequencyHz: 60 });
+    const report = correctBoard(board, { arrangement: 'delta-bank', practice: 'iec', catalogue: TYPICAL_CATALOGUES['north-american'].units.map(({ name, kind, ratedKvar, ratedV, ratedHz }) => ({ name, kind, ratedKvar, ratedV, ratedHz })) });
+    expect(report.status).toBe('no-suitable-units');
+    expect(report.reasons.join(' ')).toMatch(/rated at least 528\.0 V/);
+  });
+});
+
+describe('C/k response threshold (methods notes §10: C/k = Q_step/(√3·U_LL·k_CT), common practice)', () => {
+  it('worked set: 25 kvar steps on 400 V with a 500/5 A CT give 0.361 A; 50 kvar on 480 V with 800/5 give 0.376 A', () => {
+    expectClose(responseThresholdA(25, 'three-phase', 400, 100), 25000 / (Math.sqrt(3) * 400 * 100), exact, 'C/k');
+    expectClose(responseThresholdA(25, 'three-phase', 400, 100), 0.36084, { rel: 1e-4, abs: 0 }, 'C/k worked');
+    expectClose(responseThresholdA(50, 'three-phase', 480, 160), 0.37587, { rel: 1e-4, abs: 0 }, 'C/k worked');
+    // A single-phase step on one line: Q/(U·k) (derived).
+    expectClose(responseThresholdA(5, 'single-phase', 230, 60), 5000 / (230 * 60), exact, 'single-phase');
+  });
+
+  it('standard CT primaries: the next of 10, 12.5, 15, 20, 25, 30, 40, 50, 60, 75 × 10ⁿ A', () => {
+    expect([standardCtPrimaryA(9), standardCtPrimaryA(131), standardCtPrimaryA(260.6), standardCtPrimaryA(1000)]).toEqual([10, 150, 300, 1000]);
+  });
+
+  it("the report's controller: C/k of its smallest step from the formula, the setting 0.65 × C/k, and a reconnection delay of at least the discharge time", () => {
+    const board = makeBoard('three-phase-4wire', [{ name: 'motors', connection: 'ABC-delta', kW: 80, pf: 0.8 }], { transformer: { kVA: 400, impedancePercent: 4, xOverR: 4 } });
+    const report = correctBoard(board, { arrangement: 'delta-bank', controller: { ctPrimaryA: 200, outputs: 8 } });
+    const c = report.selection!.controller!;
+    expect(c.ctRatio).toBe(40);
+    const smallest = Math.min(...report.selection!.steps.filter((s) => s.output !== null).map((s) => s.kvarAtNominalV));
+    expectClose(c.responseThresholdA, (smallest * 1000) / (Math.sqrt(3) * 400 * 40), { rel: 1e-12, abs: 0 }, 'C/k');
+    expectClose(c.responseSettingA, 0.65 * c.responseThresholdA, exact, 'setting');
+    expect(c.reconnectionDelayS).toBeGreaterThanOrEqual(c.dischargeTimeS);
+    expect(c.dischargeTimeS).toBe(180);
+    expect(c.outputsUsed).toBeLessThanOrEqual(8);
   });
 });
 
@@ -46,74 +126,44 @@ describe('choosing units for a bank', () => {
     { name: 'line B mixers', connection: 'B-N', kW: 6, pf: 0.8 },
     { name: 'line C chillers', connection: 'C-N', kW: 7.5, pf: 0.78 },
   ]);
-  const catalogue = [
-    { name: 'C-480-1', ratedKvar: 1, ratedV: 480, ratedHz: 50 as const },
-    { name: 'C-480-2', ratedKvar: 2, ratedV: 480, ratedHz: 50 as const },
-    { name: 'C-440-1', ratedKvar: 1, ratedV: 440, ratedHz: 50 as const },
-  ];
 
-  it('each branch reaches the requirement with the low tolerance, and rated voltage covers V_LL × 1.10 on a delta bank', () => {
-    const sizing = sizeDeltaBank(board, { target: { pf: 0.95 } });
-    const selection = selectBankUnits(sizing, { catalogue, pattern: '1:2:4' });
-    selection.selections.forEach((s, i) => {
-      const b = sizing.branches[i]!;
-      expect(s.unit!.ratedV).toBeGreaterThanOrEqual(1.1 * b.appliedV);
-      expect(s.designCapacitanceUF * 0.95).toBeGreaterThanOrEqual(b.capacitanceUF! * (1 - 1e-12));
-      expect(s.stepUnits.length).toBe(3);
-      // The switched steps keep the 1:2:4 ratio.
-      expect(s.stepUnits[1]).toBe(2 * s.stepUnits[0]!);
-      expect(s.stepUnits[2]).toBe(4 * s.stepUnits[0]!);
-      expectClose(s.installedKvar, s.installedUnits * s.unit!.ratedKvar, exact, 'installed kvar');
-    });
-  });
-
-  it('no bank design has less installed kvar (within the 5 % slack) among all single-type 1:2:4 builds', () => {
-    const sizing = sizeDeltaBank(board, { target: { pf: 0.95 } });
-    const selection = selectBankUnits(sizing, { catalogue, pattern: '1:2:4' });
-    selection.selections.forEach((s, i) => {
-      const needUF = sizing.branches[i]!.capacitanceUF! / 0.95;
-      let least = Infinity;
-      for (const u of catalogue.filter((c) => c.ratedV >= 440)) {
-        const cu = (u.ratedKvar * 1000) / (2 * Math.PI * 50 * u.ratedV ** 2) * 1e6;
-        const k = Math.ceil(needUF / (7 * cu) - 1e-9);
-        least = Math.min(least, 7 * k * u.ratedKvar);
-      }
-      expect(s.installedKvar).toBeLessThanOrEqual(least * 1.05 + 1e-9);
-    });
-  });
-
-  it('a star bank needs units rated for V_LN plus margin: 280 V units at 230.9 V, output by the square law', () => {
+  it('a star bank on 230 V: single-phase 280 V units (254 V needed with the 10 % margin; 67 % output)', () => {
     const sizing = sizeStarBank(board, { target: { pf: 0.95 } });
     const selection = selectBankUnits(sizing, {});
     expect(selection.catalogue).toBe('typical');
     expect(selection.catalogueNote).toMatch(/not any vendor/);
-    for (const s of selection.selections) {
-      expect(s.requiredRatedV).toBeCloseTo(1.1 * s.highestVoltageV, 9);
-      // 230.9 V × 1.10 = 254 V: the lowest typical 50 Hz rating that covers it is 280 V.
-      expect(s.unit!.ratedV).toBe(280);
-      expectClose(s.unit!.outputKvar, s.unit!.ratedKvar * (sizing.branches[0]!.appliedV / s.unit!.ratedV) ** 2, { rel: 1e-12, abs: 0 }, 'unit output');
+    for (const s of selection.selections) expect(s.requiredRatedV).toBeCloseTo(1.1 * (400 / Math.sqrt(3)), 9);
+    for (const step of selection.steps) {
+      expect(step.unit.ratedV).toBe(280);
+      expect(step.unit.kind).toBe('single-phase');
+      expectClose(step.unit.deliveredFraction, (sizing.branches[0]!.appliedV / 280) ** 2, { rel: 0.01, abs: 0 }, 'output share');
     }
   });
 
-  it('units rated far above the applied voltage are flagged as under-used', () => {
-    const sizing = sizeStarBank(board, { target: { pf: 0.95 } });
-    const selection = selectBankUnits(sizing, { catalogue: [{ ratedKvar: 2.5, ratedV: 440, ratedHz: 50 }] });
-    expect(selection.warnings.map((w) => w.code)).toContain('unit-underused');
+  it('a unit cap of 10 per branch with 0.5 kvar units still builds the largest bank that fits (never drops to nothing)', () => {
+    const sizing = sizeDeltaBank(board, { target: { pf: 0.95 } });
+    const catalogue = [{ name: 'C-0.5', ratedKvar: 0.5, ratedV: 440, ratedHz: 50 as const }];
+    const capped = selectBankUnits(sizing, { catalogue, maxUnitsPerBranch: 10 });
+    expect(capped.nameplateKvar).toBeGreaterThan(0);
+    for (const s of capped.selections) expect(s.units).toBeLessThanOrEqual(10);
+    // With 20 allowed, all three branches get units (not all on one).
+    const twenty = selectBankUnits(sizing, { catalogue, maxUnitsPerBranch: 20 });
+    expect(twenty.selections.filter((s) => s.units > 0).length).toBe(3);
+    for (const s of twenty.selections) expect(s.units).toBeLessThanOrEqual(20);
   });
 
-  it("a fixed part is only used with a light-load sizing, and stays within what the light load can take at +10 %", () => {
-    const sizing = sizeStarBank(board, { target: { pf: 0.95 } });
-    expect(selectBankUnits(sizing, { catalogue }).selections.every((s) => s.fixedUnits === 0)).toBe(true);
+  it('a fixed part is only used with a light-load sizing, and stays within what the light load can take at +10 %', () => {
+    const sizing = sizeDeltaBank(board, { target: { pf: 0.95 } });
+    expect(selectBankUnits(sizing).selections.every((s) => s.fixedCapacitanceUF === 0)).toBe(true);
     const light = makeBoard('three-phase-4wire', [
-      { name: 'line A ovens', connection: 'A-N', kW: 4.5, pf: 0.75 },
-      { name: 'line B mixers', connection: 'B-N', kW: 3, pf: 0.8 },
-      { name: 'line C chillers', connection: 'C-N', kW: 3.75, pf: 0.78 },
+      { name: 'line A ovens', connection: 'A-N', kW: 6, pf: 0.75 },
+      { name: 'line B mixers', connection: 'B-N', kW: 4, pf: 0.8 },
+      { name: 'line C chillers', connection: 'C-N', kW: 5, pf: 0.78 },
     ]);
-    const lightSizing = sizeStarBank(light, { target: { pf: 0.95 } });
-    const selection = selectBankUnits(sizing, { catalogue: [{ ratedKvar: 0.5, ratedV: 280, ratedHz: 50 }], lightLoad: lightSizing });
+    const lightSizing = sizeDeltaBank(light, { target: { pf: 0.95 } });
+    const selection = selectBankUnits(sizing, { lightLoad: lightSizing });
     selection.selections.forEach((s, i) => {
-      expect(s.fixedUnits).toBeGreaterThan(0);
-      expect(s.fixedCapacitanceUF * 1.1).toBeLessThanOrEqual(lightSizing.branches[i]!.limitSusceptanceS! / (2 * Math.PI * 50) * 1e6 * (1 + 1e-12));
+      expect(s.fixedCapacitanceUF * 1.1).toBeLessThanOrEqual((lightSizing.branches[i]!.limitSusceptanceS! / (2 * Math.PI * 50)) * 1e6 * (1 + 1e-12));
     });
   });
 });

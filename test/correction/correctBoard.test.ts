@@ -16,6 +16,14 @@ describe('correctBoard on an uneven 4-wire board behind a 160 kVA transformer', 
   for (const arrangement of ['star-bank', 'delta-bank', 'balancing-compensator'] as const) {
     it(`${arrangement}: meets a per-line 0.95 target with units chosen, verified by re-solving`, () => {
       const report = correctBoard(bakery, { arrangement, target: { pf: 0.95, definition: 'per-line' }, lightLoad: { fraction: 0.3 } });
+      // The capacitor-only compensator's branches have a narrow window (no limit known beyond its own
+      // requirement), so its units may meet the target at nominal capacitance only; the banks meet it across the tolerance.
+      if (arrangement === 'balancing-compensator') {
+        expect(['meets-target', 'meets-target-at-nominal-capacitance']).toContain(report.status);
+        expect(report.verification.check.met).toBe(true);
+        expect(report.verification.tolerance.high.check.leadingLines).toEqual([]);
+        return;
+      }
       expect(report.status).toBe('meets-target');
       expect(report.verification.check.met).toBe(true);
       for (const line of report.verification.lines) {
@@ -72,10 +80,12 @@ describe('correctBoard on an uneven 4-wire board behind a 160 kVA transformer', 
     expectClose(a!.pf.after, a!.pf.before, { rel: 1e-9, abs: 0 }, 'line A');
   });
 
-  it('a bank with no switched steps that is too big for the light load is flagged', () => {
-    const report = correctBoard(bakery, { arrangement: 'star-bank', target: { pf: 0.98 }, bank: { pattern: 'fixed' }, lightLoad: { fraction: 0.1 } });
-    expect(report.verification.lightLoad!.ok).toBe(false);
-    expect(report.warnings.map((w) => w.code)).toContain('light-load-leading');
+  it('a bank left fully connected that is too big for the light load is flagged', () => {
+    const report = correctBoard(bakery, { arrangement: 'star-bank', target: { pf: 0.98 } });
+    const allFixed = report.selection!.equipment.map((g) => ({ ...g, branches: g.branches.map((b) => ({ ...b, fixedSusceptanceS: b.susceptanceS })) }));
+    const v = verifyCorrection(bakery, { equipment: allFixed, target: { pf: 0.98 }, lightLoad: { fraction: 0.1 } });
+    expect(v.lightLoad!.ok).toBe(false);
+    expect(v.warnings.map((w) => w.code)).toContain('light-load-leading');
   });
 
   it('a board-wide IEEE 1459 effective target: an equal three-phase bank cannot reach it before a line leads, a proportional one can', () => {
@@ -105,9 +115,29 @@ describe('correctBoard on single-phase and split-phase boards', () => {
     const report = correctBoard(board, { arrangement: 'star-bank', target: { pf: 0.95 } });
     expect(report.verification.branches.map((b) => b.branch)).toEqual(['A-N', 'B-N']);
     expect(report.verification.check.leadingLines).toEqual([]);
-    // The lowest typical 60 Hz rating is 240 V: at 120 V a unit gives a quarter of its rating.
-    for (const s of report.selection!.selections) if (s.unit) expectClose(s.unit.outputKvar, s.unit.ratedKvar * (s.highestVoltageV / 240) ** 2, { rel: 0.02, abs: 0 }, 'output');
+    // The lowest typical North-American rating is 208 V: at 120 V a unit would give a third of its
+    // rating, below the 65 % delivery floor, so no unit suits a 120 V capacitor.
+    expect(report.status).toBe('no-suitable-units');
+    expect(report.reasons.join(' ')).toMatch(/typical North-American catalogue \(60 Hz\) fits A-N, B-N/);
     expectPlainData(report);
+  });
+
+  it('split-phase 120/240 V, 60 Hz: a line-to-line capacitor (the "delta" bank of a split-phase board) from 240 V units', () => {
+    const board = makeBoard(
+      'split-phase',
+      [
+        { name: 'well pump', connection: 'A-B', kW: 1.8, pf: 0.72 },
+        { name: 'shop compressor', connection: 'A-B', kW: 1.5, pf: 0.75 },
+      ],
+      { lineToNeutral: 120, frequencyHz: 60 },
+    );
+    const report = correctBoard(board, { arrangement: 'delta-bank', target: { pf: 0.95 } });
+    expect(report.verification.branches.map((b) => b.branch)).toEqual(['A-B']);
+    expect(report.status).toBe('meets-target');
+    for (const step of report.selection!.steps) {
+      expect(step.unit.ratedV).toBe(240);
+      expect(step.kind).toBe('single-phase');
+    }
   });
 
   it('single-phase 230 V: a board-wide vector target', () => {

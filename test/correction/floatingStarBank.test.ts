@@ -11,14 +11,15 @@ const board = (loads: object[]) =>
   );
 
 describe('floating star bank', () => {
-  it('needs units rated for the line-to-line voltage plus margin (an element reaches V_LL as the star point moves)', () => {
+  it('is built from equal steps (no trims: unequal branches would push the star point), units rated for V_LN plus margin', () => {
     const report = correctBoard(board([{ name: 'fans', connection: 'ABC-delta', kW: 20, pf: 0.8 }]), { arrangement: 'star-bank', target: { pf: 0.95 } });
     expect(report.selection).not.toBeNull();
+    expect(report.selection!.steps.every((s) => s.branches.length === 3 && s.unit.kind === 'single-phase')).toBe(true);
     for (const s of report.selection!.selections) {
-      expect(s.highestVoltageV).toBeCloseTo(400, 9);
-      expect(s.requiredRatedV).toBeCloseTo(440, 9);
-      expect(s.unit!.ratedV).toBeGreaterThanOrEqual(440);
+      // 230.9 V × 1.10 = 254 V: the typical IEC single-phase 280 V unit (67 % output, above the 65 % floor).
+      expect(s.requiredRatedV).toBeCloseTo((1.1 * 400) / Math.sqrt(3), 9);
     }
+    expect(report.selection!.steps[0]!.unit.ratedV).toBe(280);
     // Equal branches on a balanced board: the star point stays at the centroid, no shift warning.
     expect(report.warnings.map((w) => w.code)).not.toContain('star-point-shift');
   });

@@ -67,7 +67,8 @@ describe('correction laws over random lagging boards', () => {
         const report = correctBoard(board, { arrangement: 'star-bank', target: { pf }, lightLoad: { fraction: 0.3 } });
         expect(report.sizing.status).not.toBe('infeasible');
         // Hardware may be too coarse for a tiny board; then it says so rather than making a line lead.
-        expect(['meets-target', 'meets-target-at-nominal-capacitance', 'already-meets-target', 'misses-target-with-available-units']).toContain(report.status);
+        expect(['meets-target', 'meets-target-at-nominal-capacitance', 'already-meets-target', 'misses-target-with-available-units', 'no-suitable-units']).toContain(report.status);
+        if (report.status === 'no-suitable-units') expect(report.reasons.join(' ')).toMatch(/no unit in the/);
         if (report.status === 'misses-target-with-available-units') expect(report.verification.check.leadingLines).toEqual([]);
         assertReportLaws(report);
       }),

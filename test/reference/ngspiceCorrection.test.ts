@@ -26,7 +26,7 @@ const CASES: readonly { file: string; study: Record<string, unknown> }[] = [
   { file: 'riverside-cold-store.yaml', study: { arrangement: 'star-bank', target: { pf: 0.97 } } },
   { file: 'riverside-cold-store.yaml', study: { arrangement: 'star-bank', starPoint: 'floating', target: { pf: 0.95 } } },
   { file: 'riverside-cold-store.yaml', study: { arrangement: 'balancing-compensator', target: { pf: 0.95 } } },
-  { file: 'hillside-workshop.yaml', study: { arrangement: 'delta-bank', target: { pf: 0.9, definition: 'effective' }, bank: { pattern: 'fixed' } } },
+  { file: 'hillside-workshop.yaml', study: { arrangement: 'delta-bank', target: { pf: 0.9, definition: 'effective' } } },
   { file: 'corner-bakery.yaml', study: { arrangement: 'balancing-compensator' } },
 ];
 

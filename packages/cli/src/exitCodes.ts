@@ -1,5 +1,6 @@
 /** Exit codes of the trivar CLI, decided in one place. */
 import { InputError, NumericalError } from '@trivar/core';
+import { escapeControlCharacters } from './format/terminalText.js';
 
 export const EXIT = {
   ok: 0,
@@ -13,6 +14,8 @@ export const EXIT = {
   numerical: 4,
   /** `trivar correct` ran, but the target cannot be met with the allowed equipment (the report says why). */
   targetNotMet: 5,
+  /** The output could not be written (a full disk, a closed file); a reader closing a pipe early is not an error (exit 0). */
+  output: 6,
 } as const;
 
 /** A problem with the command line or the files it names. */
@@ -32,10 +35,19 @@ export function exitCodeFor(error: unknown): number {
   return EXIT.internal;
 }
 
+/** A file with more problems than this is most likely not a board at all. */
+const MAX_ISSUES_SHOWN = 50;
+
+/** The message for stderr; user text inside it (names, keys, paths) has its control characters escaped. */
 export function messageFor(error: unknown): string {
-  if (error instanceof InputError) return `error: ${error.message}`;
-  if (error instanceof NumericalError) return `error: no solution: ${error.message}`;
-  if (error instanceof UsageError) return `error: ${error.message}`;
+  if (error instanceof InputError) {
+    const shown = error.issues.slice(0, MAX_ISSUES_SHOWN).map((i) => `  - ${escapeControlCharacters(i.message)}`);
+    const more = error.issues.length - shown.length;
+    if (more > 0) shown.push(`  (${more} more problem${more === 1 ? '' : 's'} not shown: is this a board file?)`);
+    return `error: ${error.heading}:\n${shown.join('\n')}`;
+  }
+  if (error instanceof NumericalError) return `error: no solution: ${escapeControlCharacters(error.message)}`;
+  if (error instanceof UsageError) return `error: ${escapeControlCharacters(error.message)}`;
   const detail = error instanceof Error ? (error.stack ?? error.message) : String(error);
   return `internal error (a bug in trivar, please report it with the board file):\n${detail}`;
 }

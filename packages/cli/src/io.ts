@@ -1,34 +1,111 @@
 /** What a command needs from the outside world; tests pass their own. */
-import { readFileSync } from 'node:fs';
+import { open } from 'node:fs/promises';
 import { EXIT, UsageError } from './exitCodes.js';
+import { decodeBoardBytes } from './decodeBoardBytes.js';
+import { fileErrorWords } from './fileErrorWords.js';
+
+/** Default read limit for a board file or standard input, MB (MiB). A board of 1,000 circuits is about 70 kB. */
+export const DEFAULT_MAX_INPUT_MB = 1;
+
+export interface ReadOptions {
+  /** Refuse input larger than this many MiB, counted while reading. @defaultValue DEFAULT_MAX_INPUT_MB */
+  readonly maxInputMB?: number;
+}
 
 export interface CliIo {
   readonly stdout: (text: string) => void;
   readonly stderr: (text: string) => void;
-  /** Reads a board file, or standard input for "-". */
-  readonly readSource: (path: string) => Promise<string>;
+  /** Reads a board file, or standard input for "-", as text. */
+  readonly readSource: (path: string, options?: ReadOptions) => Promise<string>;
   /** True when stdout is a terminal (colour allowed). */
   readonly isTty: boolean;
 }
 
-async function readStdin(): Promise<string> {
+const MIB = 1024 * 1024;
+const CHUNK = 64 * 1024;
+
+function sourceName(path: string): string {
+  return path === '-' ? 'standard input' : `board file "${path}"`;
+}
+
+function tooLarge(path: string, maxBytes: number): UsageError {
+  const mb = maxBytes / MIB;
+  return new UsageError(
+    `${sourceName(path)} is larger than the ${mb} MB read limit; a board file is normally a few kB (1,000 circuits are about 70 kB). ` +
+      `If this really is a board, raise the limit with --max-input-mb <MB>`,
+    EXIT.input,
+  );
+}
+
+/** Reads at most maxBytes + 1 bytes, so a device or pipe without end (/dev/zero) is refused, not buffered. */
+async function readFileLimited(path: string, maxBytes: number): Promise<Buffer> {
+  const handle = await open(path, 'r');
+  try {
+    const chunks: Buffer[] = [];
+    let total = 0;
+    for (;;) {
+      const buffer = Buffer.allocUnsafe(Math.min(CHUNK, maxBytes + 1 - total));
+      const { bytesRead } = await handle.read(buffer, 0, buffer.length, null);
+      if (bytesRead === 0) break;
+      chunks.push(buffer.subarray(0, bytesRead));
+      total += bytesRead;
+      if (total > maxBytes) throw tooLarge(path, maxBytes);
+    }
+    return Buffer.concat(chunks, total);
+  } finally {
+    await handle.close();
+  }
+}
+
+async function readStdinLimited(maxBytes: number): Promise<Buffer> {
   const chunks: Buffer[] = [];
-  for await (const chunk of process.stdin) chunks.push(chunk as Buffer);
-  return Buffer.concat(chunks).toString('utf8');
+  let total = 0;
+  for await (const chunk of process.stdin) {
+    const bytes = chunk as Buffer;
+    total += bytes.length;
+    if (total > maxBytes) {
+      process.stdin.destroy();
+      throw tooLarge('-', maxBytes);
+    }
+    chunks.push(bytes);
+  }
+  return Buffer.concat(chunks, total);
+}
+
+/** Reads a board source with the size limit enforced while reading; file errors in plain words. */
+export async function readBoardSource(path: string, options: ReadOptions = {}): Promise<string> {
+  const maxBytes = Math.floor((options.maxInputMB ?? DEFAULT_MAX_INPUT_MB) * MIB);
+  let bytes: Buffer;
+  try {
+    bytes = path === '-' ? await readStdinLimited(maxBytes) : await readFileLimited(path, maxBytes);
+  } catch (e) {
+    if (e instanceof UsageError) throw e;
+    throw new UsageError(`cannot read ${sourceName(path)}: ${fileErrorWords(e)}`, EXIT.input);
+  }
+  return decodeBoardBytes(bytes, sourceName(path));
+}
+
+/**
+ * What happens when stdout cannot take the output. A reader that closed the pipe
+ * (`trivar solve board.yaml | head -1`) ends trivar quietly with exit 0, as other
+ * Unix filters do; any other write error (a full disk: ENOSPC) is an error with
+ * its own exit code. Errors on stderr itself are ignored: there is nowhere left to report them.
+ */
+export function guardOutputStreams(): void {
+  process.stdout.on('error', (error: NodeJS.ErrnoException) => {
+    if (error.code === 'EPIPE') return process.exit(EXIT.ok);
+    try {
+      process.stderr.write(`error: cannot write the output: ${fileErrorWords(error)}\n`);
+    } finally {
+      process.exit(EXIT.output);
+    }
+  });
+  process.stderr.on('error', () => undefined);
 }
 
 export const processIo: CliIo = {
   stdout: (text) => process.stdout.write(text),
   stderr: (text) => process.stderr.write(text),
-  readSource: async (path) => {
-    if (path === '-') return readStdin();
-    try {
-      return readFileSync(path, 'utf8');
-    } catch (e) {
-      const code = (e as NodeJS.ErrnoException).code;
-      const why = code === 'ENOENT' ? 'no such file' : code === 'EISDIR' ? 'it is a directory' : (code ?? 'unreadable');
-      throw new UsageError(`cannot read board file "${path}": ${why}`, EXIT.input);
-    }
-  },
+  readSource: readBoardSource,
   isTty: Boolean(process.stdout.isTTY),
 };

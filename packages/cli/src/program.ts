@@ -1,10 +1,14 @@
 /** The trivar command line: commands wired to core; no physics here. */
 import { Command, CommanderError, InvalidArgumentError, Option } from 'commander';
 import { EXIT, exitCodeFor, messageFor } from './exitCodes.js';
-import type { CliIo } from './io.js';
+import { DEFAULT_MAX_INPUT_MB, type CliIo } from './io.js';
 import { runSolve } from './commands/solve.js';
 import { runSchema } from './commands/schema.js';
 import { runCorrect, type CorrectCommandOptions } from './commands/correct.js';
+import { runRebalance, type RebalanceCommandOptions } from './commands/rebalance.js';
+import { DIAGRAM_VIEWS, runDiagram, type DiagramCommandOptions } from './commands/diagram.js';
+import { runReport, type ReportCommandOptions } from './commands/report.js';
+import { runCheck, type CheckCommandOptions } from './commands/check.js';
 import packageJson from '../package.json' with { type: 'json' };
 
 export const VERSION: string = packageJson.version;
@@ -22,6 +26,7 @@ Exit codes:
   2  the command line is wrong
   3  the board file cannot be read or is not valid (every problem is listed with its field path)
   4  the board has no solution (singular network, or loads beyond what the supply can deliver)
+  6  the output could not be written (disk full); a reader closing the pipe early ends trivar quietly with 0
   1  internal error (a bug in trivar)`;
 
 const CORRECT_EXAMPLES = `
@@ -37,12 +42,85 @@ Exit codes: as for solve, plus
   5  the study ran but the target cannot be met with the allowed equipment (the report says why
      and shows the best reachable result)`;
 
+const REBALANCE_EXAMPLES = `
+The study can also live in the board file under "rebalance:" (pins, load conditions, capacities;
+see trivar schema); options override it.
+
+Examples:
+  trivar rebalance examples/maple-court-flats.yaml
+  trivar rebalance examples/maple-court-flats.yaml --move-limit 3
+  trivar rebalance examples/maple-court-flats.yaml --near-best 2 --write flats-rebalanced.yaml
+  trivar rebalance board.yaml --aim neutral=1,largest-line=0.5 --json
+
+Exit codes: as for solve`;
+
+const AIM_NAMES: Record<string, string> = {
+  'largest-line': 'largestLine',
+  neutral: 'neutral',
+  'current-unbalance': 'currentUnbalance',
+  'voltage-unbalance': 'voltageUnbalance',
+};
+
+/** "neutral=2,largest-line" → { neutral: 2, largestLine: 1 }. */
+function parseAim(text: string): Record<string, number> {
+  const aim: Record<string, number> = {};
+  for (const part of text.split(',')) {
+    const [name = '', weight] = part.split('=').map((s) => s.trim());
+    const key = AIM_NAMES[name];
+    const w = weight === undefined ? 1 : Number(weight);
+    if (!key || !Number.isFinite(w) || w < 0)
+      throw new InvalidArgumentError(`expected figures from ${Object.keys(AIM_NAMES).join(', ')}, each optionally =weight (a number >= 0), separated by commas.`);
+    aim[key] = w;
+  }
+  return aim;
+}
+
+/** Any number: the study's schema checks the range and names the field. */
+function anyNumber(text: string): number {
+  const x = Number(text);
+  if (text.trim() === '' || !Number.isFinite(x)) throw new InvalidArgumentError('expected a number.');
+  return x;
+}
+
+const DIAGRAM_EXAMPLES = `
+Examples:
+  trivar diagram examples/corner-bakery.yaml -o bakery-phasors.svg
+  trivar diagram examples/riverside-cold-store.yaml --with-correction -o cold-store.svg
+  trivar diagram examples/riverside-cold-store.yaml --view triangles -o triangles.svg
+  trivar diagram examples/hillside-workshop.yaml --view sequence > sequence.svg`;
+
+const REPORT_EXAMPLES = `
+The report includes the correction study when the board file has a "correction:" section.
+
+Examples:
+  trivar report examples/riverside-cold-store.yaml -o cold-store.html
+  trivar report examples/corner-bakery.yaml --format md -o bakery.md   (writes bakery-*.svg beside it)`;
+
+const CHECK_EXAMPLES = `
+The figures file (YAML or JSON) lists the capacitors you chose and, if you like, what you expect:
+  targetPf: 0.95
+  capacitors:
+    - { branch: A-B, kvar: 16 }              # nameplate kvar (at ratedV, default the branch's nominal voltage)
+    - { branch: C-N, uF: 250 }               # or the capacitance
+  expected: { pf: 0.95, neutralA: 20, lines: { A: { currentA: 170, pf: 0.95 } } }
+
+Examples:
+  trivar check examples/riverside-cold-store.yaml examples/hand-figures/riverside-cold-store.yaml
+  trivar check board.yaml my-figures.yaml --json`;
+
 function numberIn(min: number, max: number, what: string) {
   return (text: string): number => {
     const x = Number(text);
     if (!Number.isFinite(x) || x <= min || x > max) throw new InvalidArgumentError(`expected ${what}.`);
     return x;
   };
+}
+
+/** The read limit for board files and standard input, checked while reading. */
+function maxInputOption(): Option {
+  return new Option('--max-input-mb <MB>', `refuse a board larger than this (default ${DEFAULT_MAX_INPUT_MB} MB)`).argParser(
+    numberIn(0, 4096, 'a size in MB above 0 and at most 4096'),
+  );
 }
 
 /** What a command that ran to the end reports through the exit code (set by `correct`). */
@@ -67,8 +145,9 @@ export function createProgram(io: CliIo, outcome: RunOutcome = { exitCode: EXIT.
     .option('--open-neutral', 'also show what each line-to-neutral load would see if the neutral conductor broke')
     .option('--board <name>', 'installation files: also print the full figures of this board (repeatable)', (v: string, prev: string[] = []) => [...prev, v])
     .option('--all-boards', 'installation files: print the full figures of every board')
+    .addOption(maxInputOption())
     .addHelpText('after', SOLVE_EXAMPLES)
-    .action(async (board: string, opts: { json?: boolean; openNeutral?: boolean; board?: string[]; allBoards?: boolean }) => {
+    .action(async (board: string, opts: { json?: boolean; openNeutral?: boolean; board?: string[]; allBoards?: boolean; maxInputMb?: number }) => {
       await runSolve(board, opts, io);
     });
 
@@ -84,13 +163,69 @@ export function createProgram(io: CliIo, outcome: RunOutcome = { exitCode: EXIT.
     .option('--allow-leading', 'let a line end up leading (default: never leading)')
     .option('--upper-pf <value>', 'do not correct beyond this lagging power factor', numberIn(0, 1, 'a power factor above 0 and at most 1'))
     .option('--light-load <fraction>', 'check the fixed part at this fraction of every load (0-1)', numberIn(-1e-12, 1, 'a fraction from 0 to 1'))
-    .addOption(new Option('--pattern <steps>', 'switched-step ratios of the bank').choices(['fixed', '1:1:1', '1:2:2', '1:2:4']))
+    .addOption(new Option('--practice <region>', 'regional practice: typical catalogue, voltage margin, discharge time').choices(['iec', 'north-american']))
+    .addOption(new Option('--outputs <n>', 'switched outputs of the bank controller').choices(['6', '8', '12']))
+    .option('--ct <amps>', 'primary of the controller current transformer, A', numberIn(0, 1e6, 'a current above 0 A'))
     .option('--json', 'print the full report as JSON instead of the text report')
+    .addOption(maxInputOption())
     .addHelpText('after', CORRECT_EXAMPLES)
     .action(async (board: string, opts: CorrectCommandOptions) => {
       const report = await runCorrect(board, opts, io);
-      const missed = report.status === 'infeasible' || report.status === 'misses-target-with-available-units';
+      const missed = report.status === 'infeasible' || report.status === 'misses-target-with-available-units' || report.status === 'no-suitable-units';
       if (missed) outcome.exitCode = EXIT.targetNotMet;
+    });
+
+  program
+    .command('rebalance')
+    .description('find which circuits to move to which phase (fewest moves, proven bound) and re-solve the board')
+    .argument('<board>', 'board file (YAML or JSON), or - for standard input')
+    .option('--aim <figures>', 'what to make small: largest-line, neutral, current-unbalance, voltage-unbalance, each =weight (default largest-line,neutral)', parseAim)
+    .addOption(new Option('--combine <how>', 'over several load conditions: the worst one or the weighted mean').choices(['worst', 'weighted']))
+    .option('--move-limit <n>', 'move at most this many circuits', anyNumber)
+    .option('--near-best <percent>', 'fewest moves whose score is within this % of the best', anyNumber)
+    .option('--capacity <A>', 'largest current any line may carry, A', anyNumber)
+    .addOption(new Option('--method <how>', 'search: exact branch-and-bound, local search, or auto by board size').choices(['auto', 'exact', 'local-search']))
+    .option('--no-table', 'skip the table of the best score by moves allowed')
+    .option('--write <file>', 'save the board file with the moves made (never the input file)')
+    .option('--json', 'print the full report as JSON instead of the text report')
+    .addHelpText('after', REBALANCE_EXAMPLES)
+    .action(async (board: string, opts: RebalanceCommandOptions) => {
+      await runRebalance(board, opts, io);
+    });
+
+  program
+    .command('diagram')
+    .description('draw the board as SVG: phasors (voltages, line and neutral currents), sequence components, or per-line current triangles')
+    .argument('<board>', 'board file (YAML or JSON), or - for standard input')
+    .addOption(new Option('--view <name>', 'what to draw').choices([...DIAGRAM_VIEWS]).default('phasors'))
+    .option('--with-correction', "overlay the board before and after the board file's correction study")
+    .option('-o, --output <file>', 'write the SVG to this file (default: standard output)')
+    .addHelpText('after', DIAGRAM_EXAMPLES)
+    .action(async (board: string, opts: DiagramCommandOptions) => {
+      await runDiagram(board, opts, io);
+    });
+
+  program
+    .command('report')
+    .description('write a self-contained report of the board (HTML, or Markdown with SVG figures beside it)')
+    .argument('<board>', 'board file (YAML or JSON), or - for standard input')
+    .option('-o, --output <file>', 'report file to write (HTML may go to standard output)')
+    .addOption(new Option('--format <kind>', 'report format').choices(['html', 'md']).default('html'))
+    .option('--no-correction', "leave out the board file's correction study")
+    .addHelpText('after', REPORT_EXAMPLES)
+    .action(async (board: string, opts: ReportCommandOptions) => {
+      await runReport(board, opts, io, `Made with trivar ${VERSION}. Figures come from the model entered; check them against measurements and local codes.`);
+    });
+
+  program
+    .command('check')
+    .description('check a hand calculation: solve the board with the capacitors you chose and explain each difference from the textbook figures')
+    .argument('<board>', 'board file (YAML or JSON), or - for standard input')
+    .argument('<figures>', 'your hand figures (YAML or JSON): capacitors per phase or line pair, expected PF and currents')
+    .option('--json', 'print the full result as JSON instead of the report')
+    .addHelpText('after', CHECK_EXAMPLES)
+    .action(async (board: string, figures: string, opts: CheckCommandOptions) => {
+      await runCheck(board, figures, opts, io);
     });
 
   program

@@ -21,9 +21,12 @@ export interface InputIssue {
 export class InputError extends Error {
   override readonly name = 'InputError';
   readonly issues: readonly InputIssue[];
+  /** What the issues are about, e.g. "the board is not valid". */
+  readonly heading: string;
   constructor(issues: readonly InputIssue[], heading = 'the board is not valid') {
     super(`${heading}:\n${issues.map((i) => `  - ${i.message}`).join('\n')}`);
     this.issues = issues;
+    this.heading = heading;
   }
 }
 
@@ -44,8 +47,10 @@ export class NumericalError extends Error {
 export function formatPath(path: readonly PropertyKey[]): string {
   let out = '';
   for (const key of path) {
+    // Keys come from the schema except unknown ones, which are user text of any length: shortened.
+    const text = typeof key === 'string' && key.length > 40 ? `${key.slice(0, 37)}...` : String(key);
     if (typeof key === 'number') out += `[${key}]`;
-    else out += out === '' ? String(key) : `.${String(key)}`;
+    else out += out === '' ? text : `.${text}`;
   }
   return out;
 }

@@ -22,9 +22,10 @@ export type {
   ConnectionSpec,
   LoadModelName,
 } from './board/boardSchema.js';
-export { boardSchema } from './board/boardSchema.js';
+export { boardSchema, PHYSICAL_RANGES } from './board/boardSchema.js';
 export type { BoardValidation } from './board/validateBoard.js';
 export { validateBoard, parseBoard, readBoardText, parseBoardText } from './board/validateBoard.js';
+export { BOARD_TEXT_LIMITS } from './board/readBoardText.js';
 export { boardJsonSchema } from './board/boardJsonSchema.js';
 export { acceptedConnections } from './board/boardRules.js';
 export type { Board, BoardLoad, LoadBranch, Terminal, ZipFractions, PhaseId } from './board/boardModel.js';
@@ -66,6 +67,11 @@ export { boardPowerDefinitions, effectiveQuantities } from './analysis/powerDefi
 export { analyseSolution } from './analysis/analyseSolution.js';
 export { powerReading } from './analysis/powerReading.js';
 export { studyOpenNeutral } from './analysis/studyOpenNeutral.js';
+export { OPEN_NEUTRAL_LIMITS, OPEN_NEUTRAL_METHOD } from './analysis/openNeutralWording.js';
+export type { NeutralBreakPath, FollowNeutralBreakOptions } from './analysis/followNeutralBreak.js';
+export { followNeutralBreak, withNeutralFault } from './analysis/followNeutralBreak.js';
+export type { NewtonOptions, NewtonOutcome } from './network/solveNetworkByNewton.js';
+export { solveNetworkByNewton } from './network/solveNetworkByNewton.js';
 export { WARNING_THRESHOLDS } from './analysis/boardWarnings.js';
 
 // Correction
@@ -79,7 +85,9 @@ export type {
   CapacitanceToleranceSpec,
   Arrangement,
   TargetDefinition,
-  StepPattern,
+  Practice,
+  ControllerSpec,
+  BalanceTargetSpec,
 } from './correction/correctionSpec.js';
 export { correctionSpecSchema } from './correction/correctionSpec.js';
 export type { CorrectionSpecValidation } from './correction/validateCorrectionSpec.js';
@@ -91,7 +99,9 @@ export type { EquipmentGroup, EquipmentBranch, EquipmentTerminal, BranchSlot, Ad
 export { addCorrectionEquipment } from './correction/equipment.js';
 export type { AppliedConditions, CapacitorOutput } from './correction/capacitorOutput.js';
 export { capacitorOutput } from './correction/capacitorOutput.js';
-export { TYPICAL_CAPACITOR_UNITS } from './correction/typicalCapacitorUnits.js';
+export type { CatalogueUnit, TypicalCatalogue } from './correction/unitCatalogues.js';
+export { TYPICAL_CATALOGUES } from './correction/unitCatalogues.js';
+export { controllerSettings, responseThresholdA, standardCtPrimaryA } from './correction/controllerSettings.js';
 export { scaleBoardLoads } from './correction/scaleBoardLoads.js';
 export type { StarBankOptions } from './correction/sizeStarBank.js';
 export { sizeStarBank } from './correction/sizeStarBank.js';
@@ -100,9 +110,41 @@ export { sizeDeltaBank } from './correction/sizeDeltaBank.js';
 export type { CompensatorOptions } from './correction/sizeBalancingCompensator.js';
 export { sizeBalancingCompensator } from './correction/sizeBalancingCompensator.js';
 export type { SelectBankUnitsOptions } from './correction/selectBankUnits.js';
-export { selectBankUnits } from './correction/selectBankUnits.js';
+export { selectBankUnits, defaultPractice } from './correction/selectBankUnits.js';
 export type { VerifyCorrectionOptions } from './correction/verifyCorrection.js';
 export { verifyCorrection } from './correction/verifyCorrection.js';
 export { correctBoard } from './correction/correctBoard.js';
 export type * from './correction/correctionResult.js';
 export { CORRECTION_CAUTIONS } from './correction/correctionWording.js';
+
+// Rebalancing (which circuits to move to which phase)
+export type { RebalanceSpec, AimSpec, AimFigure, LoadConditionSpec, PinSpec } from './rebalance/rebalanceSpec.js';
+export { rebalanceSpecSchema, AIM_FIGURES } from './rebalance/rebalanceSpec.js';
+export type { ConditionFigures, RebalanceObjective } from './rebalance/rebalanceObjective.js';
+export type { RebalanceOptions } from './rebalance/rebalanceBoard.js';
+export { rebalanceBoard } from './rebalance/rebalanceBoard.js';
+export type * from './rebalance/rebalanceResult.js';
+export { REBALANCE_CAUTIONS } from './rebalance/rebalanceWording.js';
+export { rewriteBoardText } from './rebalance/rewriteBoardText.js';
+
+// Drawings and reports (SVG/HTML/Markdown text; the CLI writes the files)
+export type { PhasorDiagramOptions } from './render/renderPhasorDiagram.js';
+export { renderPhasorDiagram } from './render/renderPhasorDiagram.js';
+export { renderSequenceDiagram } from './render/renderSequenceDiagram.js';
+export type { CurrentTriangleOptions, LineCurrentParts } from './render/renderCurrentTriangles.js';
+export { renderCurrentTriangles, lineCurrentParts } from './render/renderCurrentTriangles.js';
+export type { ReportDocument, ReportSection, ReportBlock, ReportColumn } from './render/report/reportDocument.js';
+export type { BoardReportInput } from './render/report/buildBoardReport.js';
+export { buildBoardReport } from './render/report/buildBoardReport.js';
+export type { ReportHtmlOptions } from './render/report/renderReportHtml.js';
+export { renderReportHtml } from './render/report/renderReportHtml.js';
+export type { MarkdownReport } from './render/report/renderReportMarkdown.js';
+export { renderReportMarkdown } from './render/report/renderReportMarkdown.js';
+
+// Checking hand calculations (trivar check)
+export type { HandFiguresSpec, HandCapacitorSpec, HandBranch } from './handCheck/handFiguresSpec.js';
+export { handFiguresSchema } from './handCheck/handFiguresSpec.js';
+export { parseHandFigures } from './handCheck/validateHandFigures.js';
+export type * from './handCheck/handCheckResult.js';
+export { checkHandFigures } from './handCheck/checkHandFigures.js';
+export { textbookWorking } from './handCheck/textbookWorking.js';

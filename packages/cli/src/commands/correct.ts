@@ -1,6 +1,7 @@
 /** `trivar correct`: size, choose and verify power-factor correction for a board. */
 import { correctBoard, InputError, normaliseBoard, parseBoard, readBoardText, type CorrectionReport } from '@trivar/core';
 import type { CliIo } from '../io.js';
+import { writeResult } from '../writeResult.js';
 import { UsageError } from '../exitCodes.js';
 import { renderCorrectionReport } from '../format/correctionReport.js';
 
@@ -12,7 +13,10 @@ export interface CorrectCommandOptions {
   readonly allowLeading?: boolean;
   readonly upperPf?: number;
   readonly lightLoad?: number;
-  readonly pattern?: string;
+  readonly outputs?: string;
+  readonly practice?: string;
+  readonly ct?: number;
+  readonly maxInputMb?: number;
 }
 
 /** The board file's `correction` section with the command-line options laid over it. */
@@ -26,12 +30,16 @@ function studySpec(fromFile: Record<string, unknown> | undefined, o: CorrectComm
   if (o.upperPf !== undefined) target.maxLaggingPf = o.upperPf;
   if (Object.keys(target).length) spec.target = target;
   if (o.lightLoad !== undefined) spec.lightLoad = { ...((spec.lightLoad as object | undefined) ?? {}), fraction: o.lightLoad };
-  if (o.pattern !== undefined) spec.bank = { ...((spec.bank as object | undefined) ?? {}), pattern: o.pattern };
+  if (o.practice !== undefined) spec.practice = o.practice;
+  const controller: Record<string, unknown> = { ...((spec.controller as Record<string, unknown> | undefined) ?? {}) };
+  if (o.outputs !== undefined) controller.outputs = Number(o.outputs);
+  if (o.ct !== undefined) controller.ctPrimaryA = o.ct;
+  if (Object.keys(controller).length) spec.controller = controller;
   return spec;
 }
 
 export async function runCorrect(file: string, options: CorrectCommandOptions, io: CliIo): Promise<CorrectionReport> {
-  const spec = parseBoard(readBoardText(await io.readSource(file)));
+  const spec = parseBoard(readBoardText(await io.readSource(file, options.maxInputMb === undefined ? {} : { maxInputMB: options.maxInputMb })));
   const study = studySpec(spec.correction as Record<string, unknown> | undefined, options);
   if (study.arrangement === undefined)
     throw new UsageError('choose what to size: --arrangement star-bank | delta-bank | balancing-compensator, or correction.arrangement in the board file');
@@ -51,6 +59,6 @@ export async function runCorrect(file: string, options: CorrectCommandOptions, i
       );
     throw error;
   }
-  io.stdout(options.json ? `${JSON.stringify(report, null, 2)}\n` : renderCorrectionReport(report));
+  writeResult(io, report, options.json, renderCorrectionReport);
   return report;
 }

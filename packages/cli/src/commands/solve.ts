@@ -1,26 +1,28 @@
 /** `trivar solve`: read a board or installation file, solve it, print the report or JSON. */
 import { InputError, isInstallationInput, readBoardText, solveBoard, solveInstallation, type BoardResult, type InstallationResult } from '@trivar/core';
 import type { CliIo } from '../io.js';
+import { writeResult } from '../writeResult.js';
 import { renderSolveReport } from '../format/solveReport.js';
 import { renderInstallationReport } from '../format/installationReport.js';
 
 export interface SolveCommandOptions {
   readonly json?: boolean;
   readonly openNeutral?: boolean;
+  readonly maxInputMb?: number;
   /** Installation files: boards whose full report to show. */
   readonly board?: readonly string[];
   readonly allBoards?: boolean;
 }
 
 export async function runSolve(file: string, options: SolveCommandOptions, io: CliIo): Promise<BoardResult | InstallationResult> {
-  const text = await io.readSource(file);
+  const text = await io.readSource(file, options.maxInputMb === undefined ? {} : { maxInputMB: options.maxInputMb });
   const input = readBoardText(text);
   const solveOptions = options.openNeutral ? { openNeutral: true } : {};
   if (!isInstallationInput(input)) {
     if (options.board?.length || options.allBoards)
       throw new InputError([{ code: 'not_applicable', path: '', expected: 'an installation file (with boards:) for --board and --all-boards', message: '--board and --all-boards apply to installation files (with boards:), and this is a single board' }], 'the options do not fit the file');
     const result = solveBoard(input, solveOptions);
-    io.stdout(options.json ? `${JSON.stringify(result, null, 2)}\n` : renderSolveReport(result));
+    writeResult(io, result, options.json, renderSolveReport);
     return result;
   }
   const result = solveInstallation(input, solveOptions);
@@ -32,6 +34,6 @@ export async function runSolve(file: string, options: SolveCommandOptions, io: C
       'the options do not fit the file',
     );
   const detailed = options.allBoards ? names : names.filter((n) => options.board?.includes(n));
-  io.stdout(options.json ? `${JSON.stringify(result, null, 2)}\n` : renderInstallationReport(result, { detailed }));
+  writeResult(io, result, options.json, (r) => renderInstallationReport(r, { detailed }));
   return result;
 }

@@ -1,7 +1,8 @@
-/** CorrectionReport → the human-readable report of `trivar correct`. */
-import type { BeforeAfter, BranchSizing, CorrectionReport, CorrectionVerification, BankSelection, CompensatorSizing } from '@trivar/core';
+/** CorrectionReport → the human-readable report of `trivar correct` (fits 100 columns). */
+import type { BankSelection, BankStep, BeforeAfter, BranchSizing, CompensatorSizing, ControllerSettings, CorrectionReport, CorrectionVerification } from '@trivar/core';
 import { fixed, renderTable, section } from './textTable.js';
 import { headerLines } from './solveReport.js';
+import { wrapText } from './wrapText.js';
 
 const ARRANGEMENT_WORDS: Record<string, string> = {
   'star-bank': 'star-connected capacitor bank (one capacitor per phase)',
@@ -14,11 +15,13 @@ const STATUS_WORDS: Record<string, string> = {
   'meets-target-at-nominal-capacitance': 'MEETS THE TARGET at nominal capacitance (not across the whole tolerance band)',
   'already-meets-target': 'NOTHING TO DO: the board already meets the target',
   'misses-target-with-available-units': 'MISSES THE TARGET with the available units',
+  'no-suitable-units': 'NO SUITABLE UNITS for this arrangement',
   infeasible: 'TARGET NOT REACHABLE with this arrangement',
 };
 
 const arrow = (x: BeforeAfter, digits: number, unit = '') => `${fixed(x.before, digits)}${unit} → ${fixed(x.after, digits)}${unit}`;
 const senseWord = (s: string) => (s === 'lagging' ? 'lag' : s === 'leading' ? 'lead' : '');
+const indentLines = (lines: readonly string[]) => lines.map((l) => wrapText(l, '  ', '    ')).join('\n');
 
 function elementText(b: BranchSizing): string {
   if (b.element === 'none') return '-';
@@ -41,42 +44,85 @@ function sizingTable(branches: readonly BranchSizing[]): string {
   );
 }
 
-function selectionTable(sel: BankSelection): string {
-  const rows = sel.selections.map((s) => {
-    if (!s.unit) return [s.branch, '(none)', '', '', '', '', '', '', ''];
-    const steps = s.stepUnits.length ? s.stepUnits.map((n, k) => `${n}${s.stepsOnAtDesign[k] ? '*' : ''}`).join('+') : '-';
-    return [
-      s.branch,
-      s.unit.name.includes('kvar') ? s.unit.name : `${s.unit.name} (${fixed(s.unit.ratedKvar, 2)} kvar ${fixed(s.unit.ratedV, 0)} V ${s.unit.ratedHz} Hz)`,
-      String(s.fixedUnits),
-      steps,
-      fixed(s.installedKvar, 2),
-      fixed(s.designCapacitanceUF, 1),
-      fixed(s.designKvarAtAppliedV, 2),
-      fixed(s.designCurrentA, 2),
-      `${fixed(s.highestVoltageV, 0)} / ${fixed(s.requiredRatedV, 0)}`,
-    ];
-  });
-  const table = renderTable(
+const unitWords = (s: BankStep) => `${s.unit.kind === 'three-phase' ? '3-ph' : '1-ph'} ${fixed(s.unit.ratedKvar, 2)} kvar ${fixed(s.unit.ratedV, 0)} V`;
+const partWords: Record<BankStep['part'], string> = { fixed: 'fixed', balanced: 'equal', trim: 'trim', single: 'single' };
+
+function stepsTable(sel: BankSelection): string {
+  return renderTable(
+    [
+      { header: 'step', align: 'left' },
+      { header: 'part', align: 'left' },
+      { header: 'branches', align: 'left' },
+      { header: 'units' },
+      { header: 'unit', align: 'left' },
+      { header: 'plate kvar' },
+      { header: 'delivered' },
+      { header: 'µF/branch' },
+      { header: 'C/k A' },
+    ],
+    sel.steps.map((s) => [
+      s.output === null ? '-' : String(s.output),
+      partWords[s.part],
+      s.branches.join(' '),
+      String(s.units),
+      unitWords(s),
+      fixed(s.nameplateKvar, 2),
+      fixed(s.deliveredKvar, 2),
+      fixed(s.capacitancePerBranchUF, 1),
+      s.output === null ? '-' : fixed(s.responseThresholdA, 3),
+    ]),
+  );
+}
+
+function branchTable(sel: BankSelection): string {
+  return renderTable(
     [
       { header: 'branch', align: 'left' },
-      { header: 'unit', align: 'left' },
-      { header: 'fixed' },
-      { header: 'steps' },
-      { header: 'kvar plate' },
-      { header: 'µF on' },
-      { header: 'kvar on' },
-      { header: 'A on' },
-      { header: 'V max / rating ≥' },
+      { header: 'µF needed', align: 'left' },
+      { header: 'µF built' },
+      { header: 'fixed µF' },
+      { header: 'kvar' },
+      { header: 'A' },
+      { header: 'V nom / max / rating ≥', align: 'left' },
     ],
-    rows,
+    sel.selections.map((s) => [
+      s.branch,
+      `${fixed(s.minimumCapacitanceUF, 1)} – ${s.maximumCapacitanceUF === null ? '?' : fixed(s.maximumCapacitanceUF, 1)}`,
+      fixed(s.designCapacitanceUF, 1),
+      fixed(s.fixedCapacitanceUF, 1),
+      fixed(s.designKvarAtAppliedV, 2),
+      fixed(s.designCurrentA, 1),
+      `${fixed(s.nominalV, 0)} / ${fixed(s.highestVoltageV, 0)} / ${fixed(s.requiredRatedV, 0)}`,
+    ]),
   );
+}
+
+function controllerLines(c: ControllerSettings): string[] {
+  const band = `PF ≥ ${fixed(c.targetBand.minPf, 3)} lagging${c.targetBand.maxPf === null ? (c.targetBand.leadingAllowed ? ', leading allowed' : ' up to 1.000') : ` up to ${fixed(c.targetBand.maxPf, 3)} lagging`}`;
   return [
-    table,
-    `  units per step (pattern ${sel.pattern}); * = step switched on at the design load; "on" columns: design state at the solved voltage`,
-    `  installed ${fixed(sel.installedKvar, 2)} kvar in ${sel.installedUnits} units · ${sel.catalogueNote}`,
-    `  capacitance tolerance −${sel.capacitanceTolerance.minusPercent} % / +${sel.capacitanceTolerance.plusPercent} % · unit rating ≥ highest applied voltage + ${sel.voltageMarginPercent} %`,
-  ].join('\n');
+    `outputs: ${c.outputsUsed} of ${c.outputs} used · ${c.measurement === 'one-line' ? 'equal steps: an ordinary controller reading one CT' : 'steps serve single lines: the controller must measure every line (one CT per line)'}`,
+    `CT ${fixed(c.ctPrimaryA, 0)}/${fixed(c.ctSecondaryA, 0)} A${c.ctChosen ? ' (chosen: next standard rating above 1.25 × the largest line current; give controller.ctPrimaryA if yours differs)' : ''}`,
+    `C/k of the smallest step (${fixed(c.smallestStepKvar, 2)} kvar at nominal voltage) = ${fixed(c.responseThresholdA, 3)} A; set ${fixed(c.responseSettingA, 3)} A (${c.settingFraction} × C/k)`,
+    `target band ${band} · switching delay ${c.switchingDelayS} s · a step waits ${c.reconnectionDelayS} s before it is switched on again (discharge time ${c.dischargeTimeS} s)`,
+  ];
+}
+
+function selectionBlock(sel: BankSelection): string {
+  const out: string[] = [];
+  out.push(
+    `  delivered ${fixed(sel.deliveredKvar, 2)} kvar at the solved voltage · nameplate ${fixed(sel.nameplateKvar, 2)} kvar · ${sel.units} unit${sel.units === 1 ? '' : 's'} · ${sel.steps.filter((s) => s.output !== null).length} switched step(s)`,
+  );
+  if (sel.steps.length) out.push(stepsTable(sel));
+  out.push(
+    indentLines([
+      `units from the ${sel.catalogueTitle}${sel.catalogue === 'typical' ? ` — ${sel.catalogueNote}` : ''}`,
+      `unit rating ≥ nominal voltage + ${fixed(sel.voltageMarginPercent, 0)} % (${sel.practice === 'iec' ? 'IEC' : 'North-American'} practice) and ≥ highest solved voltage / ${fixed(sel.continuousLimitPercent / 100, 2)}; every unit delivers ≥ ${fixed(sel.deliveryFloorPercent, 0)} % of its nameplate; capacitance tolerance −${sel.capacitanceTolerance.minusPercent} % / +${sel.capacitanceTolerance.plusPercent} %`,
+      `chosen for ${sel.cost.statement} (cost ${fixed(sel.cost.value, 1)})`,
+    ]),
+  );
+  out.push(branchTable(sel));
+  if (sel.controller) out.push(`  Controller\n${indentLines(controllerLines(sel.controller).map((l) => `  ${l}`))}`);
+  return out.join('\n');
 }
 
 function lineTable(v: CorrectionVerification): string {
@@ -93,10 +139,14 @@ function lineTable(v: CorrectionVerification): string {
       arrow(l.currentA, 1),
       arrow(l.activeCurrentA, 1),
       arrow(l.reactiveCurrentA, 1),
-      `${fixed(l.pf.before, 3)} ${senseWord(l.sense.before)} → ${fixed(l.pf.after, 3)} ${senseWord(l.sense.after)}`,
+      `${fixed(l.pf.before, 3)} ${senseWord(l.sense.before)} → ${fixed(l.pf.after, 3)} ${senseWord(l.sense.after)}`.replace(/ +/g, ' ').trim(),
     ]),
   );
 }
+
+/** A change worded by its sign: "saves 0.44 kW", or "adds 0.01 kW". */
+const signed = (x: number, digits: number, unit: string, good: string, bad: string) =>
+  Number(fixed(Math.abs(x), digits)) === 0 ? `no change` : x > 0 ? `${good} ${fixed(x, digits)} ${unit}` : `${bad} ${fixed(-x, digits)} ${unit}`;
 
 function boardLines(v: CorrectionVerification): string {
   const out: string[] = [];
@@ -111,18 +161,23 @@ function boardLines(v: CorrectionVerification): string {
     out.push(`|I0|/|I1|                    ${arrow(v.unbalance.zeroSequenceCurrentPercent, 1, ' %')}`);
     out.push(`voltage unbalance |V2|/|V1|  ${arrow(v.unbalance.voltageFactorPercent, 2, ' %')}`);
   }
-  out.push(`losses (source + feeder)     ${fixed(v.before.losses.totalKW, 3)} kW → ${fixed(v.after.losses.totalKW, 3)} kW (saves ${fixed(v.lossReductionKW, 3)} kW)`);
+  out.push(
+    `losses (source + feeder)     ${fixed(v.before.losses.totalKW, 3)} kW → ${fixed(v.after.losses.totalKW, 3)} kW (${signed(v.lossReductionKW, 3, 'kW', 'saves', 'adds')})`,
+  );
   const worstDrop = (r: CorrectionVerification['before']) => Math.max(...r.phases.map((p) => p.voltageDropPercent));
   out.push(`largest voltage drop         ${fixed(worstDrop(v.before), 2)} % → ${fixed(worstDrop(v.after), 2)} %`);
   const rel = v.releasedKVA;
-  out.push(`apparent power released      ${fixed(rel.vector, 2)} kVA vector${rel.effective === null ? '' : `, ${fixed(rel.effective, 2)} kVA effective`}`);
+  const released = (x: number, what: string) => signed(x, 2, `kVA ${what}`, 'releases', 'draws more by');
+  out.push(`apparent power              ${released(rel.vector, 'vector')}${rel.effective === null ? '' : `, ${released(rel.effective, 'effective')}`}`);
   return out.map((l) => `  ${l}`).join('\n');
 }
 
 function checksBlock(v: CorrectionVerification): string {
   const out: string[] = [];
   const t = v.tolerance;
-  out.push(`capacitance ×${t.low.capacitanceFactor}: target ${t.low.check.met ? 'met' : 'NOT met'} · ×${t.high.capacitanceFactor}: ${t.high.check.leadingLines.length ? `lines ${t.high.check.leadingLines.join(', ')} lead` : 'no line leads'}`);
+  out.push(
+    `capacitance ×${t.low.capacitanceFactor}: target ${t.low.check.met ? 'met' : 'NOT met'} · ×${t.high.capacitanceFactor}: ${t.high.check.leadingLines.length ? `lines ${t.high.check.leadingLines.join(', ')} lead` : 'no line leads'}`,
+  );
   const vr = v.voltageRise;
   out.push(
     `steady voltage rise: ${vr.estimatePercent === null ? 'ideal source (none)' : `≈ Qc/S_sc = ${fixed(vr.capacitorKvar, 1)} kvar / ${fixed(vr.shortCircuitKVA ?? 0, 0)} kVA = ${fixed(vr.estimatePercent, 2)} %`}; solved ${fixed(vr.solvedPercent, 2)} %; flag above ${vr.limitPercent} %${vr.flagged ? '  ← FLAGGED' : ''}`,
@@ -134,55 +189,62 @@ function checksBlock(v: CorrectionVerification): string {
   );
   if (v.lightLoad) {
     const ll = v.lightLoad;
-    const lines = ll.lines.map((l) => `${l.phase} ${fixed(l.pf, 3)} ${senseWord(l.sense)}`).join(', ');
+    const lines = ll.lines.map((l) => `${l.phase} ${fixed(l.pf, 3)} ${senseWord(l.sense)}`.trim()).join(', ');
     out.push(
       `light load (${fixed(ll.fraction * 100, 0)} % of the loads, fixed part ${fixed(ll.fixedKvar, 2)} kvar only): ${lines || 'no lines'}${ll.ok ? ' — no line leads' : ` — LEADS on ${ll.leadingLines.join(', ')}`}; voltage rise ${fixed(ll.voltageRise.solvedPercent, 2)} %`,
     );
   }
-  return out.map((l) => `  ${l}`).join('\n');
+  return indentLines(out);
 }
 
 function compensatorBlock(c: CompensatorSizing, ideal: CorrectionVerification | null): string {
   const res = (label: string, s: CompensatorSizing['ideal']) =>
-    `  ${label}: |I2|/|I1| ${fixed(s.residual.negativeSequenceCurrentPercent, 2)} %, |I0|/|I1| ${fixed(s.residual.zeroSequenceCurrentPercent, 2)} %` +
+    `${label}: |I2|/|I1| ${fixed(s.residual.negativeSequenceCurrentPercent, 2)} %, |I0|/|I1| ${fixed(s.residual.zeroSequenceCurrentPercent, 2)} %` +
     (s.residual.neutralCurrentA === null ? '' : `, neutral ${fixed(s.residual.neutralCurrentA, 2)} A`) +
     (s.residual.positiveSequencePf === null ? '' : `, PF1+ ${fixed(s.residual.positiveSequencePf, 3)}`) +
     (s.reactorBranches.length ? ` — reactors on ${s.reactorBranches.join(', ')}` : '');
   return [
     `  ideal solution (may need reactors), re-solved:`,
     sizingTable(c.ideal.branches),
-    res('ideal residual', c.ideal),
+    indentLines([res('ideal residual', c.ideal)]),
     ideal ? `  ideal solution verified: lines ${ideal.lines.map((l) => `${l.phase} ${fixed(l.pf.after, 3)}`).join(', ')}` : '',
     '',
-    `  best capacitor-only solution. Objective: ${c.objectiveStatement}`,
+    indentLines(['best capacitor-only solution (least remaining unbalance and reactive error, no line made to lead):']),
     sizingTable(c.capacitorOnly.branches),
-    res('capacitor-only residual', c.capacitorOnly),
+    indentLines([res('capacitor-only residual', c.capacitorOnly)]),
   ]
     .filter((l) => l !== '')
     .join('\n');
 }
 
+/** The floating-star rule, said where it applies. */
+const FLOATING_STAR_NOTE =
+  'a floating star bank is sized as its exact delta equivalent (Y–Δ transform of the capacitances) and mapped back; its star point settles where the three capacitor currents sum to zero';
+
 export function renderCorrectionReport(r: CorrectionReport): string {
   const v = r.verification;
+  const target = `${r.target.statement}; PF ≥ ${fixed(r.target.pf, 3)}${r.target.leading === 'never' ? ', never leading' : ', leading allowed'}${r.target.maxLaggingPf === null ? '' : `, at most ${fixed(r.target.maxLaggingPf, 3)} lagging`}`;
   const parts = [
     headerLines(v.before).slice(0, 2).join('\n'),
-    `correction: ${ARRANGEMENT_WORDS[r.arrangement] ?? r.arrangement}`,
-    `target: ${r.target.statement}; PF ≥ ${fixed(r.target.pf, 3)}${r.target.leading === 'never' ? ', never leading' : ', leading allowed'}${r.target.maxLaggingPf === null ? '' : `, at most ${fixed(r.target.maxLaggingPf, 3)} lagging`}`,
+    wrapText(`correction: ${ARRANGEMENT_WORDS[r.arrangement] ?? r.arrangement}`, '', '  '),
+    wrapText(`target: ${target}`, '', '  '),
     '',
-    `${STATUS_WORDS[r.status] ?? r.status} — ${r.summary}`,
-    ...r.reasons.map((x) => `  - ${x}`),
+    wrapText(`${STATUS_WORDS[r.status] ?? r.status} — ${r.summary}`, '', '  '),
+    ...r.reasons.map((x) => wrapText(x, '  - ', '    ')),
   ];
   if (r.sizing.arrangement === 'balancing-compensator') parts.push(section('Compensator sizing') + compensatorBlock(r.sizing, r.idealVerification));
   else {
     const shift = r.sizing.starPointShift;
-    const shiftLine = shift ? `\n  floating star point of the bank: ${fixed(shift.magnitude, 2)} V from the centroid of the line voltages` : '';
-    parts.push(section('Sizing (continuous, before choosing units)') + sizingTable(r.sizing.branches) + shiftLine);
+    const shiftLines = shift
+      ? `\n${indentLines([`floating star point of the bank: ${fixed(shift.magnitude, 2)} V from the centroid of the line voltages`, FLOATING_STAR_NOTE])}`
+      : '';
+    parts.push(section('Sizing (continuous, before choosing units)') + sizingTable(r.sizing.branches) + shiftLines);
   }
-  if (r.selection) parts.push(section('Bank as built from units') + selectionTable(r.selection));
+  if (r.selection) parts.push(section('Bank as built from units') + selectionBlock(r.selection));
   parts.push(section('Lines, before → after (verified by re-solving the board)') + lineTable(v));
   parts.push(section('Board, before → after') + boardLines(v));
   parts.push(section('Checks') + checksBlock(v));
-  parts.push(section('Warnings') + (r.warnings.length ? r.warnings.map((w) => `  ! ${w.message}`).join('\n') : '  none'));
-  parts.push(section('Cautions') + r.cautions.map((c) => `  * ${c}`).join('\n'));
+  parts.push(section('Warnings') + (r.warnings.length ? r.warnings.map((w) => wrapText(w.message, '  ! ', '    ')).join('\n') : '  none'));
+  parts.push(section('Cautions') + r.cautions.map((c) => wrapText(c, '  * ', '    ')).join('\n'));
   return `${parts.join('\n')}\n`;
 }

@@ -1,6 +1,6 @@
 /** BoardResult → the human-readable report of `trivar solve`. */
-import type { BoardResult, OpenNeutralStudy, PowerReading } from '@trivar/core';
-import { fixed, renderTable, section } from './textTable.js';
+import { OPEN_NEUTRAL_METHOD as OPEN_NEUTRAL_METHOD_TEXT, type BoardResult, type OpenNeutralLoadReading, type OpenNeutralStudy, type PowerReading } from '@trivar/core';
+import { fixed, renderTable, section, wrapParagraph } from './textTable.js';
 
 const SYSTEM_WORDS: Record<string, string> = {
   'three-phase-4wire': 'three-phase 4-wire',
@@ -155,14 +155,46 @@ function powerBlock(r: BoardResult): string {
 }
 
 function openNeutralBlock(study: OpenNeutralStudy): string {
-  if (!study.applicable) return `  not applicable: ${study.note ?? ''}`;
-  const rows = study.loads.map((l) => [l.name, l.phase, fixed(l.voltage, 1), fixed(l.voltagePercent, 1), l.flag === 'ok' ? '' : l.flag === 'over' ? 'OVERVOLTAGE' : 'undervoltage']);
+  if (!study.applicable) return wrapParagraph(`not applicable: ${study.note ?? ''}`, '  ');
+  const other = study.otherStates[0];
+  const impedance = study.impedanceModel;
+  const flagWord = (f: OpenNeutralLoadReading['flag']) => (f === 'ok' ? '' : f === 'over' ? 'OVER' : 'under');
+  const rows = study.loads.map((l, k) => [
+    l.name,
+    l.phase,
+    `${fixed(l.voltage, 1)}${l.belowLowVoltageRule ? '*' : ''}`,
+    fixed(l.voltagePercent, 1),
+    flagWord(l.flag),
+    ...(impedance ? [fixed(impedance.loads[k]!.voltage, 1), fixed(impedance.loads[k]!.voltagePercent, 1)] : []),
+    ...(other ? [fixed(other.loads[k]!.voltage, 1), fixed(other.loads[k]!.voltagePercent, 1)] : []),
+  ]);
   const table = renderTable(
-    [{ header: 'circuit', align: 'left' }, { header: 'phase', align: 'left' }, { header: 'V' }, { header: '%nom' }, { header: '', align: 'left' }],
+    [
+      { header: 'circuit', align: 'left' },
+      { header: 'phase', align: 'left' },
+      { header: 'V' },
+      { header: '%nom' },
+      { header: '', align: 'left' },
+      ...(impedance ? [{ header: 'V if Z' }, { header: '%nom' }] : []),
+      ...(other ? [{ header: 'V alt' }, { header: '%nom' }] : []),
+    ],
     rows,
   );
-  const bar = study.barVoltage ? `  neutral bar floats to ${fixed(study.barVoltage.magnitude, 1)} V from the source star point\n` : '';
-  return `${bar}${table}\n${study.cautions.map((c) => `  ! ${c}`).join('\n')}`;
+  const key = [
+    study.reachedFromIntact ? 'V: the state the board reaches' : 'V: the worst state found',
+    ...(impedance ? ['V if Z: every load as a constant impedance'] : []),
+    ...(other ? ['V alt: another solution of the same equations'] : []),
+    ...(study.loads.some((l) => l.belowLowVoltageRule) ? ['*: below the low-voltage rule, taken as an impedance'] : []),
+  ];
+  const bar = study.barVoltage ? `  neutral bar floats to ${fixed(study.barVoltage.magnitude, 1)} V from the source star point` : '';
+  return [
+    wrapParagraph(OPEN_NEUTRAL_METHOD_TEXT, '  '),
+    ...(bar ? [bar] : []),
+    table,
+    wrapParagraph(key.join(' · '), '  (', '   ').concat(')'),
+    ...study.findings.map((f) => wrapParagraph(f, '  ! ')),
+    ...study.cautions.map((c) => wrapParagraph(c, '  ! ')),
+  ].join('\n');
 }
 
 export function renderSolveReport(r: BoardResult): string {

@@ -25,3 +25,25 @@ export function fixed(x: number, digits: number): string {
 
 /** A heading line for a report section. */
 export const section = (title: string): string => `\n${title}\n`;
+
+/** Widest line a text report may have, in characters. */
+export const REPORT_WIDTH = 100;
+
+/**
+ * Word-wraps one paragraph to `width`, starting with `first` and continuing
+ * under it with `rest` (hanging indent). A word longer than the line stays whole.
+ */
+export function wrapParagraph(text: string, first: string, rest = ' '.repeat(first.length), width = REPORT_WIDTH): string {
+  const lines: string[] = [];
+  let line = first;
+  let empty = true;
+  for (const word of text.split(/\s+/).filter(Boolean)) {
+    if (!empty && line.length + 1 + word.length > width) {
+      lines.push(line);
+      line = rest + word;
+    } else line += (empty ? '' : ' ') + word;
+    empty = false;
+  }
+  lines.push(line);
+  return lines.join('\n');
+}

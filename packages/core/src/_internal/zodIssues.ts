@@ -13,10 +13,13 @@ function expectedFor(issue: core.$ZodIssue): string {
     case 'invalid_value':
       return `one of ${issue.values.map((v) => JSON.stringify(v)).join(', ')}`;
     case 'too_small':
+      // Physical ranges carry their whole range as the message (see boardSchema.ts `within`).
+      if (issue.message.startsWith('a number ')) return issue.message;
       if (issue.origin === 'array') return `at least ${String(issue.minimum)} item(s)`;
       if (issue.origin === 'string') return 'a non-empty text';
       return `a number ${issue.inclusive ? '>=' : '>'} ${String(issue.minimum)}`;
     case 'too_big':
+      if (issue.message.startsWith('a number ')) return issue.message;
       return `a number ${issue.inclusive ? '<=' : '<'} ${String(issue.maximum)}`;
     case 'unrecognized_keys':
       return 'only the documented keys (see the board JSON Schema)';
@@ -65,6 +68,35 @@ export function inputIssuesFromZod(issues: readonly core.$ZodIssue[], root: unkn
  */
 export function parseOptions<T>(schema: ZodType<T>, input: unknown, what: string): T {
   const parsed = schema.safeParse(input ?? {});
-  if (!parsed.success) throw new InputError(inputIssuesFromZod(parsed.error.issues, input), `${what} are not valid`);
+  const issues = allInputIssues(parsed.success ? [] : parsed.error.issues, input);
+  if (!parsed.success || issues.length) throw new InputError(issues, `${what} are not valid`);
   return parsed.data;
+}
+
+/**
+ * Own `__proto__` keys anywhere in the input. zod builds records by assignment
+ * and skips that key silently (`perLoad: { __proto__: 0 }` vanished); strict
+ * objects report it as unknown, records do not, so it is checked here. Paths
+ * zod already reported are left out by the caller.
+ */
+export function reservedKeyIssues(input: unknown): InputIssue[] {
+  const issues: InputIssue[] = [];
+  const seen = new Set<object>();
+  const stack: { value: unknown; path: PropertyKey[] }[] = [{ value: input, path: [] }];
+  while (stack.length) {
+    const { value, path } = stack.pop()!;
+    if (value === null || typeof value !== 'object' || seen.has(value)) continue;
+    seen.add(value);
+    if (!Array.isArray(value) && Object.hasOwn(value, '__proto__'))
+      issues.push(inputIssue('reserved_key', formatPath([...path, '__proto__']), 'a key other than "__proto__" (it cannot be told apart from the object itself; rename a load called that to list it here)', '__proto__'));
+    for (const [k, v] of Object.entries(value)) stack.push({ value: v, path: [...path, Array.isArray(value) ? Number(k) : k] });
+  }
+  return issues;
+}
+
+/** zod issues plus the `__proto__` keys zod passed over, each path once. */
+export function allInputIssues(zodIssues: readonly core.$ZodIssue[], input: unknown): InputIssue[] {
+  const issues = inputIssuesFromZod(zodIssues, input);
+  const reported = new Set(issues.map((i) => i.path));
+  return [...issues, ...reservedKeyIssues(input).filter((i) => !reported.has(i.path))];
 }

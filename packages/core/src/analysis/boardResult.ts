@@ -122,18 +122,62 @@ export interface OpenNeutralLoadReading {
   readonly voltage: number;
   readonly voltagePercent: number;
   readonly flag: 'over' | 'under' | 'ok';
+  /** True when this load's constant-current/constant-power part is below the low-voltage threshold, so it is taken as an impedance. */
+  readonly belowLowVoltageRule: boolean;
+}
+
+/** One solution of the board with its neutral open: what each line-to-neutral load sees. */
+export interface OpenNeutralState {
+  /** Voltage of the floating neutral bar to the source star point, V. */
+  readonly barVoltage: Phasor | null;
+  readonly loads: readonly OpenNeutralLoadReading[];
+  readonly highestPercent: number;
+  readonly lowestPercent: number;
+}
+
+/** Following the board from intact to open neutral with the low-voltage rule switched off (constant power all the way down). */
+export interface OpenNeutralWithoutRule {
+  /** True when the state followed from the intact board exists with the neutral open. */
+  readonly reachedOpen: boolean;
+  /** Neutral fault resistance at which the followed state ceased to exist (voltage collapse), ohm. */
+  readonly collapseAtOhms: number | null;
+  /** The open-neutral state when reached, else the last state followed. */
+  readonly state: OpenNeutralState;
 }
 
 export interface OpenNeutralStudy {
   readonly applicable: boolean;
   /** Why not, when not applicable. */
   readonly note: string | null;
-  /** Voltage of the floating neutral bar to the source star point, V. */
+  /** Voltage of the floating neutral bar to the source star point, V (the state the board reaches). */
   readonly barVoltage: Phasor | null;
+  /** What each line-to-neutral load sees in the state the board reaches. */
   readonly loads: readonly OpenNeutralLoadReading[];
   readonly highestPercent: number | null;
   readonly lowestPercent: number | null;
   readonly cautions: readonly string[];
+  /**
+   * True when the state above was followed continuously from the intact board
+   * as a resistance in the neutral rose to open; false when that state ceased
+   * to exist on the way, and the state above is the worst one found instead.
+   */
+  readonly reachedFromIntact: boolean;
+  /** Neutral fault resistance at which the state followed from the intact board ceased to exist, ohm; null when it did not. */
+  readonly collapseAtOhms: number | null;
+  /** The same board with every load taken as a constant impedance (its impedance at nominal voltage). */
+  readonly impedanceModel: OpenNeutralState | null;
+  /** Other solutions of the same open-neutral equations, not reached from the intact board. */
+  readonly otherStates: readonly OpenNeutralState[];
+  /** The follow repeated with constant power held all the way down (no low-voltage rule); null when no load has a constant-current/power part. */
+  readonly withoutLowVoltageRule: OpenNeutralWithoutRule | null;
+  /** A load's voltage differs by more than `OPEN_NEUTRAL_LIMITS.modelDependencePercent` of nominal between the state reached and the impedance model. */
+  readonly dependsOnLoadModel: boolean;
+  /** The open-neutral equations have more than one solution. */
+  readonly multipleStates: boolean;
+  /** The state reached rests on the low-voltage rule: loads sit below it, and without it the result differs. */
+  readonly lowVoltageRuleDecides: boolean;
+  /** The flags above in words, most important first. */
+  readonly findings: readonly string[];
 }
 
 export interface BoardResult {

@@ -1,14 +1,88 @@
 /**
  * What-if: the neutral conductor between source and board is broken. Every
  * line-to-neutral load is then in series with the others through the floating
- * neutral bar (Millman's theorem gives its voltage); this reports what each one sees.
+ * neutral bar; this reports what each one sees in the state the board reaches
+ * (followed from the intact board, see followNeutralBreak.ts), beside the
+ * all-impedance answer, any other solution of the same equations, and whether
+ * the low-voltage rule of the load model decides the result.
  */
-import { abs, toPhasor } from '../complex.js';
+import { abs, sub, toPhasor } from '../complex.js';
 import { NumericalError } from '../errors.js';
 import type { Board, PhaseId } from '../board/boardModel.js';
 import { solveNetwork, terminalVoltage, type NetworkSolution, type SolveOptions } from '../network/solveNetwork.js';
-import type { OpenNeutralLoadReading, OpenNeutralStudy } from './boardResult.js';
+import { solveNetworkByNewton } from '../network/solveNetworkByNewton.js';
+import { followNeutralBreak, withNeutralFault } from './followNeutralBreak.js';
+import type { OpenNeutralLoadReading, OpenNeutralState, OpenNeutralStudy, OpenNeutralWithoutRule } from './boardResult.js';
 import { OPEN_NEUTRAL_CAUTIONS, WARNING_THRESHOLDS } from './boardWarnings.js';
+import { OPEN_NEUTRAL_LIMITS, openNeutralFindings } from './openNeutralWording.js';
+
+/** "No low-voltage rule": constant power held down to 5 % of nominal, low enough that no state this study reports gets there in practice. */
+const RULE_OFF_THRESHOLD = 0.05;
+
+function readState(board: Board, solution: NetworkSolution, threshold: number): OpenNeutralState {
+  const band = WARNING_THRESHOLDS.voltageBandPercent;
+  const loads: OpenNeutralLoadReading[] = [];
+  board.loads.forEach((load, li) =>
+    load.branches.forEach((b, bi) => {
+      if (b.to !== 'N' && b.from !== 'N') return;
+      const state = solution.branches[li]![bi]!;
+      if (!state.energised) return;
+      const percent = (100 * abs(state.voltage)) / b.vNominal;
+      loads.push({
+        name: load.name,
+        phase: (b.to === 'N' ? b.from : b.to) as PhaseId,
+        voltage: abs(state.voltage),
+        voltagePercent: percent,
+        flag: percent > 100 + band ? 'over' : percent < 100 - band ? 'under' : 'ok',
+        belowLowVoltageRule: b.zip.z < 1 && percent < 100 * threshold,
+      });
+    }),
+  );
+  const bar = terminalVoltage(solution, 'N');
+  const percents = loads.map((l) => l.voltagePercent);
+  return {
+    barVoltage: bar ? toPhasor(bar) : null,
+    loads,
+    highestPercent: Math.max(...percents),
+    lowestPercent: Math.min(...percents),
+  };
+}
+
+/** Largest node-voltage difference between two solutions of the same board, % of nominal. */
+function distancePercent(a: NetworkSolution, b: NetworkSolution): number {
+  let largest = 0;
+  a.nodeVoltages.forEach((v, k) => {
+    const w = b.nodeVoltages[k];
+    if (v && w) largest = Math.max(largest, abs(sub(v, w)));
+  });
+  return (100 * largest) / a.board.nominalLineToNeutralV;
+}
+
+const allImpedance = (board: Board): Board => ({
+  ...board,
+  loads: board.loads.map((l) => ({ ...l, branches: l.branches.map((b) => ({ ...b, zip: { z: 1, i: 0, p: 0 } })) })),
+});
+
+/** Solves, or null when this board has no solution there (the study reports what it found). */
+function trySolve<T>(solve: () => T): T | null {
+  try {
+    return solve();
+  } catch (error) {
+    if (error instanceof NumericalError) return null;
+    throw error;
+  }
+}
+
+/** Every distinct open-neutral solution Newton reaches from the given starts. */
+function openStates(open: Board, starts: readonly (NetworkSolution | null)[], threshold: number): NetworkSolution[] {
+  const found: NetworkSolution[] = [];
+  for (const start of starts) {
+    if (!start) continue;
+    const out = solveNetworkByNewton(open, start.nodeVoltages, { lowVoltageThreshold: threshold, maxIterations: 80 });
+    if (out.converged && found.every((s) => distancePercent(s, out.solution) > OPEN_NEUTRAL_LIMITS.sameStatePercent)) found.push(out.solution);
+  }
+  return found;
+}
 
 export function studyOpenNeutral(board: Board, options?: SolveOptions): OpenNeutralStudy {
   const notApplicable = (note: string): OpenNeutralStudy => ({
@@ -19,44 +93,80 @@ export function studyOpenNeutral(board: Board, options?: SolveOptions): OpenNeut
     highestPercent: null,
     lowestPercent: null,
     cautions: [],
+    reachedFromIntact: false,
+    collapseAtOhms: null,
+    impedanceModel: null,
+    otherStates: [],
+    withoutLowVoltageRule: null,
+    dependsOnLoadModel: false,
+    multipleStates: false,
+    lowVoltageRuleDecides: false,
+    findings: [],
   });
   if (!board.hasNeutral) return notApplicable('a three-phase-3wire board has no neutral conductor to lose');
   if (board.system === 'single-phase') return notApplicable('on a single-phase 2-wire board a broken neutral simply de-energises every load');
-  let broken: NetworkSolution;
+  if (!board.loads.some((l) => l.branches.some((b) => (b.from === 'N' || b.to === 'N') && abs(b.sNominal) > 0)))
+    return notApplicable('no line-to-neutral loads on this board, so a broken neutral changes nothing');
+  const threshold = options?.lowVoltageThreshold ?? 0.7;
+  const open = withNeutralFault(board, null);
+  let path;
   try {
-    broken = solveNetwork({ ...board, neutralOpen: true }, options);
+    path = followNeutralBreak(board, { lowVoltageThreshold: threshold });
   } catch (error) {
     // The what-if failing must not hide the main result; say why instead.
-    if (error instanceof NumericalError) return notApplicable(`the board with a broken neutral has no solution: ${error.message}`);
+    if (error instanceof NumericalError) return notApplicable(`the board could not be followed to a broken neutral: ${error.message}`);
     throw error;
   }
-  const band = WARNING_THRESHOLDS.voltageBandPercent;
-  const loads: OpenNeutralLoadReading[] = [];
-  board.loads.forEach((load, li) =>
-    load.branches.forEach((b, bi) => {
-      if (b.to !== 'N' && b.from !== 'N') return;
-      const state = broken.branches[li]![bi]!;
-      if (!state.energised) return;
-      const percent = (100 * abs(state.voltage)) / b.vNominal;
-      loads.push({
-        name: load.name,
-        phase: (b.to === 'N' ? b.from : b.to) as PhaseId,
-        voltage: abs(state.voltage),
-        voltagePercent: percent,
-        flag: percent > 100 + band ? 'over' : percent < 100 - band ? 'under' : 'ok',
-      });
-    }),
-  );
-  if (loads.length === 0) return notApplicable('no line-to-neutral loads on this board, so a broken neutral changes nothing');
-  const bar = terminalVoltage(broken, 'N');
-  const percents = loads.map((l) => l.voltagePercent);
+  const impedance = trySolve(() => solveNetwork(allImpedance(open)));
+  const direct = trySolve(() => solveNetwork(open, options));
+  const states = openStates(open, [path.reachedOpen ? path.state : null, impedance, direct, path.state], threshold);
+  const reachedSolution = path.reachedOpen
+    ? path.state
+    : states.map((s) => ({ s, high: readState(board, s, threshold).highestPercent })).sort((a, b) => b.high - a.high)[0]?.s;
+  if (!reachedSolution) return notApplicable('no solution of the board with a broken neutral was found: the loads cannot all be supplied in series');
+  const reached = readState(board, reachedSolution, threshold);
+  const others = states
+    .filter((s) => distancePercent(s, reachedSolution) > OPEN_NEUTRAL_LIMITS.sameStatePercent)
+    .map((s) => readState(board, s, threshold));
+  const impedanceModel = impedance ? readState(board, impedance, threshold) : null;
+
+  const powerDependent = board.loads.some((l) => l.branches.some((b) => b.zip.z < 1 && abs(b.sNominal) > 0));
+  let withoutLowVoltageRule: OpenNeutralWithoutRule | null = null;
+  let ruleDecides = false;
+  if (powerDependent && reached.loads.some((l) => l.belowLowVoltageRule)) {
+    const free = trySolve(() => followNeutralBreak(board, { lowVoltageThreshold: RULE_OFF_THRESHOLD }));
+    if (free) {
+      withoutLowVoltageRule = { reachedOpen: free.reachedOpen, collapseAtOhms: free.lostAtOhms, state: readState(board, free.state, RULE_OFF_THRESHOLD) };
+      ruleDecides = !free.reachedOpen || distancePercent(free.state, reachedSolution) > OPEN_NEUTRAL_LIMITS.ruleAgreementPercent;
+    } else ruleDecides = true;
+  }
+  const dependsOnLoadModel =
+    impedanceModel !== null &&
+    reached.loads.some((l, k) => Math.abs(l.voltagePercent - impedanceModel.loads[k]!.voltagePercent) > OPEN_NEUTRAL_LIMITS.modelDependencePercent);
+  const findings = openNeutralFindings({
+    reached,
+    reachedFromIntact: path.reachedOpen,
+    collapseAtOhms: path.lostAtOhms,
+    impedanceModel,
+    otherStates: others,
+    withoutRule: withoutLowVoltageRule,
+    lowVoltageRuleDecides: ruleDecides,
+    dependsOnLoadModel,
+    thresholdPercent: 100 * threshold,
+  });
   return {
     applicable: true,
     note: null,
-    barVoltage: bar ? toPhasor(bar) : null,
-    loads,
-    highestPercent: Math.max(...percents),
-    lowestPercent: Math.min(...percents),
+    ...reached,
     cautions: OPEN_NEUTRAL_CAUTIONS,
+    reachedFromIntact: path.reachedOpen,
+    collapseAtOhms: path.lostAtOhms,
+    impedanceModel,
+    otherStates: others,
+    withoutLowVoltageRule,
+    dependsOnLoadModel,
+    multipleStates: others.length > 0,
+    lowVoltageRuleDecides: ruleDecides,
+    findings,
   };
 }

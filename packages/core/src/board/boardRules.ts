@@ -4,7 +4,7 @@
  * them so the user sees every problem in one pass.
  */
 import { inputIssue, type InputIssue } from '../errors.js';
-import type { BoardSpec, ConductorSpec, FeederSpec, LoadSpec } from './boardSchema.js';
+import type { BoardSpec, ConductorSpec, FeederSpec, LoadSpec, SupplySpec, SystemKind } from './boardSchema.js';
 import { isThreePhase, phasesOf, systemHasNeutral } from './systemTopology.js';
 import { conductorResistance, tabulatedSizes } from './cableLibrary.js';
 import { isPerPhaseLine, lengthOf, materialOf, sizeOf } from './feederModel.js';
@@ -166,8 +166,7 @@ function modelIssues(load: LoadSpec, path: string): InputIssue[] {
   return [];
 }
 
-function connectionIssues(load: LoadSpec, path: string, board: BoardSpec): InputIssue[] {
-  const system = board.supply.system;
+function connectionIssues(load: LoadSpec, path: string, system: SystemKind): InputIssue[] {
   const phases = phasesOf(system);
   const issues: InputIssue[] = [];
   const c = load.connection;
@@ -202,12 +201,18 @@ export function acceptedConnections(system: BoardSpec['supply']['system']): stri
   }
 }
 
-function ruleLoads(board: BoardSpec): InputIssue[] {
+/**
+ * Load-by-load rules and duplicate names. `loads` may have holes where a load failed the schema
+ * (forEach skips them, indices stay the file's); without a valid supply the connection check waits.
+ */
+function loadIssues(loads: readonly (LoadSpec | undefined)[], system: SystemKind | null): InputIssue[] {
   const issues: InputIssue[] = [];
   const names = new Map<string, number>();
-  board.loads.forEach((load, i) => {
+  loads.forEach((load, i) => {
+    if (load === undefined) return;
     const path = `loads[${i}]`;
-    issues.push(...ratingIssues(load, path), ...modelIssues(load, path), ...connectionIssues(load, path, board));
+    issues.push(...ratingIssues(load, path), ...modelIssues(load, path));
+    if (system !== null) issues.push(...connectionIssues(load, path, system));
     if (load.ohms && load.ohms.r === 0 && load.ohms.x === 0)
       issues.push(inputIssue('out_of_range', `${path}.ohms`, 'a non-zero impedance (r = x = 0 is a short circuit)', 'r = 0, x = 0'));
     const first = names.get(load.name);
@@ -215,6 +220,34 @@ function ruleLoads(board: BoardSpec): InputIssue[] {
       issues.push(inputIssue('duplicate', `${path}.name`, `a name not already used (loads[${first}] has it)`, load.name));
     else names.set(load.name, i);
   });
+  return issues;
+}
+
+function ruleLoads(board: BoardSpec): InputIssue[] {
+  return loadIssues(board.loads, board.supply.system);
+}
+
+/** The parts of a board that passed the schema on their own, when the whole did not. */
+export interface BoardParts {
+  readonly supply: SupplySpec | null;
+  /** undefined when the board has no feeder; null when it has one that failed the schema. */
+  readonly feeder: FeederSpec | null | undefined;
+  /** Loads that passed the schema at their index in the file; holes where one failed. */
+  readonly loads: readonly (LoadSpec | undefined)[];
+}
+
+/**
+ * The cross-field rules that can still run when the schema failed elsewhere, so schema errors
+ * do not hide duplicate names or missing ratings until they are fixed: every problem in one pass.
+ */
+export function partialBoardIssues(parts: BoardParts): InputIssue[] {
+  const issues: InputIssue[] = [];
+  if (parts.supply) {
+    const board = { supply: parts.supply, feeder: parts.feeder ?? undefined, loads: [] } as unknown as BoardSpec;
+    issues.push(...ruleVoltageGiven(board), ...ruleSourceImpedance(board), ...ruleUnequalSource(board), ...ruleEmfPhases(board));
+    if (parts.feeder !== null) issues.push(...ruleFeeder(board));
+  }
+  issues.push(...loadIssues(parts.loads, parts.supply?.system ?? null));
   return issues;
 }
 

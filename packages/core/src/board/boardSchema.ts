@@ -7,49 +7,102 @@
  */
 import * as z from 'zod';
 import { correctionSpecSchema } from '../correction/correctionSpec.js';
+import { rebalanceSpecSchema } from '../rebalance/rebalanceSpec.js';
 
-const positive = z.number().positive();
 const nonNegative = z.number().nonnegative();
+
+/**
+ * A physical number in a plausible range, stated whole in the message whichever end is crossed.
+ * The ranges only keep out nonsense (1e308 kW, a 1e-320 power factor) that would end in overflow
+ * or a misleading "singular network"; they are wide on purpose. See PHYSICAL_RANGES.
+ */
+function within(range: PhysicalRange): z.ZodNumber {
+  const { min, max, unit, above } = range;
+  const text = `a number ${above ? 'above' : 'from'} ${min.toLocaleString('en')} ${above ? 'and at most' : 'to'} ${max.toLocaleString('en')}${unit ? ` ${unit}` : ''}`;
+  return (above ? z.number().gt(min, { message: text }) : z.number().min(min, { message: text })).max(max, { message: text });
+}
+
+interface PhysicalRange {
+  readonly min: number;
+  readonly max: number;
+  readonly unit: string;
+  /** The lower end is excluded. */
+  readonly above?: boolean;
+}
+
+/** Accepted ranges of the physical numbers in a board file (common practice, no source, unless named). */
+export const PHYSICAL_RANGES = {
+  /** Low voltage is up to 1000 V a.c. (IEC 60038, IEC 60364); 10 V leaves room for extra-low-voltage boards. */
+  voltage: { min: 10, max: 1000, unit: 'V' },
+  emfV: { min: 0, max: 1000, unit: 'V', above: true },
+  /** Distribution transformers feeding LV boards run from a few kVA to about 4,000 kVA. */
+  transformerKVA: { min: 0.1, max: 10_000, unit: 'kVA' },
+  impedancePercent: { min: 0, max: 30, unit: '%', above: true },
+  xOverR: { min: 0, max: 100, unit: '' },
+  /** Source, feeder and conductor impedances (a 1 mm² copper conductor is 18 ohm/km, IEC 60228). */
+  supplyOhms: { min: 0, max: 1000, unit: 'ohm' },
+  supplyReactanceOhms: { min: -1000, max: 1000, unit: 'ohm' },
+  ohmsPerKm: { min: 0, max: 10_000, unit: 'ohm/km' },
+  lengthM: { min: 0, max: 100_000, unit: 'm', above: true },
+  lengthFt: { min: 0, max: 330_000, unit: 'ft', above: true },
+  /** Cable library sizes (the tables hold the sizes; these only keep out nonsense). */
+  conductorMm2: { min: 0, max: 5000, unit: 'mm²', above: true },
+  conductorKcmil: { min: 0, max: 5000, unit: 'kcmil', above: true },
+  conductorTemperatureC: { min: -50, max: 250, unit: '°C' },
+  ratingA: { min: 0, max: 100_000, unit: 'A', above: true },
+  /** Loads: 100 MW is far beyond any one LV board. */
+  loadKW: { min: -100_000, max: 100_000, unit: 'kW' },
+  loadKvar: { min: -100_000, max: 100_000, unit: 'kvar' },
+  loadKVA: { min: 0, max: 100_000, unit: 'kVA', above: true },
+  loadA: { min: 0, max: 100_000, unit: 'A', above: true },
+  /** Below 0.01 a load is a reactance: give kW and kvar. */
+  pf: { min: 0.01, max: 1, unit: '' },
+  loadOhms: { min: 0, max: 1e7, unit: 'ohm' },
+  loadReactanceOhms: { min: -1e7, max: 1e7, unit: 'ohm' },
+} as const satisfies Record<string, PhysicalRange>;
 
 export const SYSTEMS = ['three-phase-4wire', 'three-phase-3wire', 'single-phase', 'split-phase'] as const;
 export const CONNECTIONS = ['A-N', 'B-N', 'C-N', 'A-B', 'B-C', 'C-A', 'ABC-star', 'ABC-delta'] as const;
 export const LOAD_MODELS = ['constant-impedance', 'constant-current', 'constant-power'] as const;
 
-const impedanceSchema = z
-  .strictObject({
-    r: nonNegative.describe('resistance, ohm'),
-    x: z.number().describe('reactance, ohm (positive inductive, negative capacitive)'),
-  })
-  .describe('series impedance R + jX in ohm');
+const impedanceOf = (r: PhysicalRange, x: PhysicalRange) =>
+  z
+    .strictObject({
+      r: within(r).describe('resistance, ohm'),
+      x: within(x).describe('reactance, ohm (positive inductive, negative capacitive)'),
+    })
+    .describe('series impedance R + jX in ohm');
+const impedanceSchema = impedanceOf(PHYSICAL_RANGES.supplyOhms, PHYSICAL_RANGES.supplyReactanceOhms);
+const loadImpedanceSchema = impedanceOf(PHYSICAL_RANGES.loadOhms, PHYSICAL_RANGES.loadReactanceOhms);
 
 const phaseEmfSchema = z.strictObject({
-  V: positive.describe('open-circuit line-to-neutral EMF, V rms'),
+  V: within(PHYSICAL_RANGES.emfV).describe('open-circuit line-to-neutral EMF, V rms'),
   angleDeg: z.number().min(-360).max(360).describe('angle, degrees'),
 });
 
 const transformerSchema = z
   .strictObject({
-    kVA: positive.describe('rated apparent power, kVA'),
-    impedancePercent: positive.max(30).describe('short-circuit impedance u_k, % of rated'),
-    xOverR: nonNegative.max(100).describe('X/R ratio of the short-circuit impedance'),
+    kVA: within(PHYSICAL_RANGES.transformerKVA).describe('rated apparent power, kVA'),
+    impedancePercent: within(PHYSICAL_RANGES.impedancePercent).describe('short-circuit impedance u_k, % of rated'),
+    xOverR: within(PHYSICAL_RANGES.xOverR).describe('X/R ratio of the short-circuit impedance'),
   })
   .describe('supply transformer; its impedance is referred to the board voltage');
 
 const conductorSchema = z
   .strictObject({
-    r: nonNegative.optional().describe('resistance, ohm'),
-    x: nonNegative.optional().describe('reactance, ohm'),
-    lengthM: positive.optional().describe('route length, m'),
-    lengthFt: positive.optional().describe('route length, ft'),
-    rOhmPerKm: nonNegative.optional().describe('resistance per km of conductor, ohm/km'),
-    xOhmPerKm: nonNegative.optional().describe('reactance per km of conductor, ohm/km (default 0.08 for a library size)'),
-    mm2: positive.optional().describe('metric size, mm² (resistance from IEC 60228 class 2)'),
-    awg: z.string().optional().describe('AWG size, e.g. "12" or "4/0" (resistance from NEC Chapter 9 Table 8)'),
-    kcmil: positive.optional().describe('size in kcmil, e.g. 250 (NEC Chapter 9 Table 8)'),
+    r: within(PHYSICAL_RANGES.supplyOhms).optional().describe('resistance, ohm'),
+    x: within(PHYSICAL_RANGES.supplyOhms).optional().describe('reactance, ohm'),
+    lengthM: within(PHYSICAL_RANGES.lengthM).optional().describe('route length, m'),
+    lengthFt: within(PHYSICAL_RANGES.lengthFt).optional().describe('route length, ft'),
+    rOhmPerKm: within(PHYSICAL_RANGES.ohmsPerKm).optional().describe('resistance per km of conductor, ohm/km'),
+    xOhmPerKm: within(PHYSICAL_RANGES.ohmsPerKm).optional().describe('reactance per km of conductor, ohm/km (default 0.08 for a library size)'),
+    mm2: within(PHYSICAL_RANGES.conductorMm2).optional().describe('metric size, mm² (resistance from IEC 60228 class 2)'),
+    awg: z.string().max(12).optional().describe('AWG size, e.g. "12" or "4/0" (resistance from NEC Chapter 9 Table 8)'),
+    kcmil: within(PHYSICAL_RANGES.conductorKcmil).optional().describe('size in kcmil, e.g. 250 (NEC Chapter 9 Table 8)'),
     material: z.enum(['copper', 'aluminium', 'aluminum']).optional().describe('conductor metal for a library size; default copper'),
-    temperatureC: z.number().min(-40).max(250).optional().describe('conductor operating temperature, °C (default 70 for mm², 75 for AWG/kcmil)'),
+    temperatureC: within(PHYSICAL_RANGES.conductorTemperatureC).optional().describe('conductor operating temperature, °C (default 70 for mm², 75 for AWG/kcmil)'),
     parallel: z.int().min(1).max(12).optional().describe('conductors in parallel (2 = a doubled neutral); default 1'),
-    ratingA: positive.optional().describe('current rating of this conductor, A'),
+    ratingA: within(PHYSICAL_RANGES.ratingA).optional().describe('current rating of this conductor, A'),
   })
   .describe('a conductor: r and x directly; or a length with rOhmPerKm, or with a size (mm2, awg or kcmil)');
 
@@ -69,8 +122,8 @@ export const supplySchema = z.strictObject({
   system: z.enum(SYSTEMS).describe('how the board is fed'),
   voltage: z
     .strictObject({
-      lineToLine: positive.optional().describe('nominal line-to-line voltage, V'),
-      lineToNeutral: positive.optional().describe('nominal line-to-neutral voltage, V'),
+      lineToLine: within(PHYSICAL_RANGES.voltage).optional().describe('nominal line-to-line voltage, V'),
+      lineToNeutral: within(PHYSICAL_RANGES.voltage).optional().describe('nominal line-to-neutral voltage, V'),
     })
     .describe('nominal voltage: give lineToLine or lineToNeutral'),
   frequencyHz: z.literal([50, 60]).describe('supply frequency, Hz'),
@@ -98,25 +151,27 @@ export const feederSchema = z
   .strictObject({
     line: z.union([conductorSchema, perPhaseConductorSchema]).optional().describe('each line (phase) conductor: one for all, or one per phase'),
     neutral: conductorSchema.optional().describe('the neutral conductor'),
-    lengthM: positive.optional().describe('route length for every conductor that does not give its own, m'),
-    lengthFt: positive.optional().describe('route length for every conductor that does not give its own, ft'),
+    lengthM: within(PHYSICAL_RANGES.lengthM).optional().describe('route length for every conductor that does not give its own, m'),
+    lengthFt: within(PHYSICAL_RANGES.lengthFt).optional().describe('route length for every conductor that does not give its own, ft'),
   })
   .describe('the cable or busway that feeds the board');
 
 export const loadSchema = z.strictObject({
   name: z.string().min(1).describe('circuit name'),
+  circuit: z.string().min(1).optional().describe('circuit number or way on the board, for the panel schedule (default: position in the list)'),
+  breakerA: within(PHYSICAL_RANGES.ratingA).optional().describe('rated current of the circuit breaker or fuse, A (shown in the panel schedule)'),
   connection: z.enum(CONNECTIONS).describe('where the load connects'),
   starPoint: z
     .enum(['neutral', 'floating'])
     .optional()
     .describe('for ABC-star loads: star point tied to the neutral (default on 4-wire boards) or floating'),
-  kW: z.number().optional().describe('active power at nominal voltage, kW (negative = generation)'),
-  kvar: z.number().optional().describe('reactive power at nominal voltage, kvar (positive = lagging)'),
-  kVA: positive.optional().describe('apparent power at nominal voltage, kVA'),
-  A: positive.optional().describe('current at nominal voltage, A (line current for three-phase loads)'),
-  pf: z.number().gt(0).max(1).optional().describe('displacement power factor, 0 < pf <= 1'),
+  kW: within(PHYSICAL_RANGES.loadKW).optional().describe('active power at nominal voltage, kW (negative = generation)'),
+  kvar: within(PHYSICAL_RANGES.loadKvar).optional().describe('reactive power at nominal voltage, kvar (positive = lagging)'),
+  kVA: within(PHYSICAL_RANGES.loadKVA).optional().describe('apparent power at nominal voltage, kVA'),
+  A: within(PHYSICAL_RANGES.loadA).optional().describe('current at nominal voltage, A (line current for three-phase loads)'),
+  pf: within(PHYSICAL_RANGES.pf).optional().describe('displacement power factor, 0.01 <= pf <= 1'),
   sense: z.enum(['lagging', 'leading']).optional().describe('whether pf is lagging (inductive, default) or leading'),
-  ohms: impedanceSchema.optional().describe('impedance per phase (star) or per branch (delta), ohm'),
+  ohms: loadImpedanceSchema.optional().describe('impedance per phase (star) or per branch (delta), ohm'),
   model: z.enum(LOAD_MODELS).optional().describe('voltage dependence; default constant-power, constant-impedance for ohms'),
   zip: z
     .strictObject({ z: nonNegative.max(1), i: nonNegative.max(1), p: nonNegative.max(1) })
@@ -143,6 +198,7 @@ export const boardSchema = z
       .partial()
       .optional()
       .describe('a power-factor correction study for `trivar correct` (command-line options override it)'),
+    rebalance: rebalanceSpecSchema.optional(),
   })
   .describe('a trivar board file');
 

@@ -15,7 +15,7 @@ const ZIP_OF_MODEL: Record<string, ZipFractions> = {
 };
 
 /** Angle of each phase EMF for a balanced source, degrees. */
-function balancedAnglesDeg(system: BoardSpec['supply']['system'], sequence: 'ABC' | 'ACB'): number[] {
+export function balancedAnglesDeg(system: BoardSpec['supply']['system'], sequence: 'ABC' | 'ACB'): number[] {
   if (system === 'single-phase') return [0];
   if (system === 'split-phase') return [0, 180];
   return sequence === 'ABC' ? [0, -120, 120] : [0, 120, -120];
@@ -73,7 +73,11 @@ function unequalSource(spec: BoardSpec, phases: readonly PhaseId[], ln: number, 
   }
   if (zeroSequence) {
     const z1 = sourceImpedance(spec, ln, ll);
-    out.sourceStarImpedance = scale(sub(complex(zeroSequence.r, zeroSequence.x), z1), 1 / 3);
+    const z0 = complex(zeroSequence.r, zeroSequence.x);
+    const zn = scale(sub(z0, z1), 1 / 3);
+    // Z0 equal to Z1 up to round-off leaves a star-point return of ~1e-19 ohm, which would
+    // stamp an admittance of ~1e18 and wreck the solve; below 1e-9 of |Z1| it is no impedance at all.
+    if (Math.hypot(zn.re, zn.im) > 1e-9 * Math.max(Math.hypot(z1.re, z1.im), Math.hypot(z0.re, z0.im))) out.sourceStarImpedance = zn;
   }
   return out;
 }

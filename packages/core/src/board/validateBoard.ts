@@ -2,11 +2,13 @@
  * Validation of board files: schema first (zod), then the cross-field rules.
  * `validateBoard` returns a result; `parseBoard` throws an `InputError`.
  */
-import { parseDocument } from 'yaml';
 import { InputError, inputIssue, type InputIssue } from '../errors.js';
-import { inputIssuesFromZod } from '../_internal/zodIssues.js';
-import { boardSchema, type BoardSpec } from './boardSchema.js';
-import { BOARD_RULES } from './boardRules.js';
+import { allInputIssues } from '../_internal/zodIssues.js';
+import { boardSchema, feederSchema, loadSchema, supplySchema, type BoardSpec, type LoadSpec } from './boardSchema.js';
+import { BOARD_RULES, partialBoardIssues, type BoardParts } from './boardRules.js';
+import { readBoardText } from './readBoardText.js';
+
+export { readBoardText };
 
 export type BoardValidation = { ok: true; board: BoardSpec } | { ok: false; issues: InputIssue[] };
 
@@ -15,10 +17,36 @@ export type BoardValidation = { ok: true; board: BoardSpec } | { ok: false; issu
  * @returns `{ ok: true, board }` or `{ ok: false, issues }` with every problem found.
  */
 export function validateBoard(input: unknown): BoardValidation {
+  // An installation file handed to a one-board function: say so, not "unknown key boards".
+  if (input !== null && typeof input === 'object' && 'boards' in input && !('loads' in input))
+    return {
+      ok: false,
+      issues: [inputIssue('installation', 'boards', 'a single board (supply, feeder, loads); this is an installation file (boards:), which `trivar solve` and solveInstallation read', 'an installation')],
+    };
   const parsed = boardSchema.safeParse(input);
-  if (!parsed.success) return { ok: false, issues: inputIssuesFromZod(parsed.error.issues, input) };
-  const issues = BOARD_RULES.flatMap((rule) => rule(parsed.data));
-  return issues.length ? { ok: false, issues } : { ok: true, board: parsed.data };
+  const shapeIssues = allInputIssues(parsed.success ? [] : parsed.error.issues, input);
+  if (parsed.success && shapeIssues.length === 0) {
+    const issues = BOARD_RULES.flatMap((rule) => rule(parsed.data));
+    return issues.length ? { ok: false, issues } : { ok: true, board: parsed.data };
+  }
+  return { ok: false, issues: [...shapeIssues, ...partialBoardIssues(boardParts(input))] };
+}
+
+/** Each part of a board that passes the schema on its own (for the rules that can still run). */
+function boardParts(input: unknown): BoardParts {
+  const raw = (input !== null && typeof input === 'object' ? input : {}) as Record<string, unknown>;
+  const supply = supplySchema.safeParse(raw.supply);
+  const feeder = raw.feeder === undefined ? undefined : feederSchema.safeParse(raw.feeder);
+  const loads = Array.isArray(raw.loads) ? raw.loads.map((load) => loadSchema.safeParse(load)) : [];
+  return {
+    supply: supply.success ? supply.data : null,
+    feeder: feeder === undefined ? undefined : feeder.success ? feeder.data : null,
+    // A sparse list: loads that failed the schema leave holes, so the rules keep the file's indices.
+    loads: loads.reduce<(LoadSpec | undefined)[]>((list, r, i) => {
+      if (r.success) list[i] = r.data;
+      return list;
+    }, []),
+  };
 }
 
 /**
@@ -29,29 +57,6 @@ export function parseBoard(input: unknown): BoardSpec {
   const result = validateBoard(input);
   if (!result.ok) throw new InputError(result.issues);
   return result.board;
-}
-
-/**
- * Reads board text (YAML, of which JSON is a subset) into a plain object. YAML
- * syntax errors become an `InputError` naming the line and column.
- * @throws {InputError}
- */
-export function readBoardText(text: string): unknown {
-  const doc = parseDocument(text, { prettyErrors: true, uniqueKeys: true });
-  if (doc.errors.length) {
-    throw new InputError(
-      doc.errors.map((e) => {
-        const at = e.linePos?.[0];
-        const where = at ? `line ${at.line}, column ${at.col}` : 'the file';
-        return { code: 'syntax', path: '', expected: 'valid YAML or JSON', message: `${where}: ${e.message.split('\n')[0]!.replace(/ at line \d+, column \d+:?$/, '')}` };
-      }),
-      'the board file could not be read',
-    );
-  }
-  const value: unknown = doc.toJS();
-  if (value === null || value === undefined)
-    throw new InputError([inputIssue('missing', '', 'a board object with supply and loads')], 'the board file is empty');
-  return value;
 }
 
 /** `readBoardText` then `parseBoard`. @throws {InputError} */

@@ -6,20 +6,21 @@
  * `selectBankUnits`, `verifyCorrection`).
  */
 import type { Board } from '../board/boardModel.js';
-import type { CorrectionSpec } from './correctionSpec.js';
+import type { Arrangement, CorrectionSpec } from './correctionSpec.js';
+import { InputError, inputIssue } from '../errors.js';
 import { parseCorrectionSpec } from './validateCorrectionSpec.js';
 import { resolveTarget } from './correctionTarget.js';
 import { sizeStarBank } from './sizeStarBank.js';
 import { sizeDeltaBank } from './sizeDeltaBank.js';
 import { sizeBalancingCompensator } from './sizeBalancingCompensator.js';
-import { selectBankUnits } from './selectBankUnits.js';
+import { defaultPractice, selectBankUnits } from './selectBankUnits.js';
 import { verifyCorrection, type VerifyCorrectionOptions } from './verifyCorrection.js';
 import { scaleBoardLoads } from './scaleBoardLoads.js';
 import type { BankSizing, CompensatorSizing, CorrectionReport, CorrectionStatus, CorrectionWarning, SizedEquipment } from './correctionResult.js';
 import { ARRANGEMENT_NAMES, CORRECTION_CAUTIONS, infeasibleReason, reportSummary, warningText } from './correctionWording.js';
 import { definedOnly } from './_internal/optionSchemas.js';
 
-function sizeArrangement(board: Board, spec: CorrectionSpec): BankSizing | CompensatorSizing {
+function sizeArrangement(board: Board, spec: CorrectionSpec & { arrangement: Arrangement }): BankSizing | CompensatorSizing {
   switch (spec.arrangement) {
     case 'star-bank':
       return sizeStarBank(board, definedOnly({ target: spec.target, starPoint: spec.starPoint, share: spec.share }));
@@ -68,7 +69,13 @@ const buildable = (sizing: BankSizing | CompensatorSizing): SizedEquipment => (s
  * report.verification.board // the corrected board, for another simulator
  */
 export function correctBoard(board: Board, spec: unknown): CorrectionReport {
-  const parsed = parseCorrectionSpec(spec, board);
+  const checked = parseCorrectionSpec(spec, board);
+  if (checked.arrangement === undefined)
+    throw new InputError(
+      [inputIssue('missing', 'arrangement', 'star-bank, delta-bank or balancing-compensator (compareCorrections sizes and compares them all)', undefined)],
+      'the correction settings are not valid',
+    );
+  const parsed = { ...checked, arrangement: checked.arrangement };
   const target = resolveTarget(parsed.target, board, parsed.arrangement);
   const sizing = sizeArrangement(board, parsed);
   const sized = buildable(sizing);
@@ -78,11 +85,16 @@ export function correctBoard(board: Board, spec: unknown): CorrectionReport {
     ? selectBankUnits(
         sized,
         definedOnly({
+          practice: parsed.practice ?? defaultPractice(board.frequencyHz),
           catalogue: parsed.catalogue,
-          pattern: parsed.bank?.pattern,
+          minStepKvar: parsed.bank?.minStepKvar,
+          trimSteps: parsed.bank?.trimSteps,
           maxUnitsPerBranch: parsed.bank?.maxUnitsPerBranch,
+          controller: parsed.controller,
+          target: parsed.target,
           capacitanceTolerance: parsed.capacitanceTolerance,
           voltageMarginPercent: parsed.voltageMarginPercent,
+          deliveryFloorPercent: parsed.deliveryFloorPercent,
           lightLoad: lightSized,
         }),
       )
@@ -104,26 +116,33 @@ export function correctBoard(board: Board, spec: unknown): CorrectionReport {
   const reasons = [...sizing.reasons];
   if (sizing.status === 'already-meets-target') status = 'already-meets-target';
   else if (sizing.status === 'infeasible') status = 'infeasible';
-  else if (!verification.check.met) {
+  else if (selection?.unbuildable) {
+    status = 'no-suitable-units';
+    reasons.push(selection.unbuildable.message);
+  } else if (!verification.check.met) {
     status = 'misses-target-with-available-units';
     reasons.push(infeasibleReason.unitsMissTarget(verification.check.shortfalls));
   } else if (!verification.tolerance.low.check.met || verification.tolerance.high.check.leadingLines.length > 0)
     status = 'meets-target-at-nominal-capacitance';
   else status = 'meets-target';
 
+  // Branch-level guesses of the selection give way to the re-solved verdict: a
+  // branch "short of its share" does not matter when the board meets the target.
+  const settledByVerdict = new Set(status === 'meets-target' ? ['units-below-target', 'tolerance-window', 'units-past-limit'] : []);
   const warnings: CorrectionWarning[] = [
     ...(status === 'already-meets-target' ? [{ code: 'nothing-to-do', message: warningText.alreadyMet, path: 'target', value: null, threshold: null }] : []),
     ...starPointWarnings(sizing, board),
     ...(sizing.arrangement === 'balancing-compensator' ? sizing.warnings : []),
-    ...(selection?.warnings ?? []),
+    ...(selection?.warnings ?? []).filter((w) => !settledByVerdict.has(w.code)),
     ...verification.warnings,
   ];
   const what = ARRANGEMENT_NAMES[parsed.arrangement];
-  const installed = selection?.installedKvar ?? 0;
+  const delivered = selection?.deliveredKvar ?? 0;
+  const nameplate = selection?.nameplateKvar ?? 0;
   return {
     arrangement: parsed.arrangement,
     status,
-    summary: status === 'already-meets-target' ? reportSummary[status](what) : reportSummary[status](what, installed),
+    summary: status === 'already-meets-target' ? reportSummary[status](what) : reportSummary[status](what, delivered, nameplate),
     reasons,
     target,
     sizing,

@@ -11,26 +11,77 @@ export const CORRECTION_DEFAULTS = {
   compensatorDefinition: 'positive-sequence',
   leading: 'never',
   share: 'equal',
-  pattern: '1:2:4',
   maxUnitsPerBranch: 24,
+  /**
+   * A switched step below about 1 kvar does not pay for its contactor and
+   * controller output (common practice, no source).
+   */
+  minStepKvar: 1,
+  trimSteps: 'auto',
+  /**
+   * An automatic bank has at least three equal switched steps where the
+   * controller outputs and the minimum step allow, so it follows the load in
+   * thirds or finer (common practice, no source).
+   */
+  minSwitchedSteps: 3,
+  /** The smallest common controller size; 8 and 12 are the usual larger ones (methods notes §10, common practice). */
+  controllerOutputs: 6,
+  ctSecondaryA: 5,
+  /** CT primary at least this much above the largest line current (common practice, no source). */
+  ctHeadroom: 1.25,
+  /** "Tens of seconds" between switching decisions (methods notes §10, common practice). */
+  switchingDelayS: 30,
+  /**
+   * Response threshold set at this share of C/k, inside the usual 0.6–0.7 that
+   * keeps a controller from hunting (methods notes §10, from memory).
+   */
+  ckSettingFraction: 0.65,
+  /**
+   * A unit must deliver at least this share of its nameplate where it is used:
+   * below about two thirds the square law wastes more than a third of what is
+   * bought. 480 V units on 400 V (69 %) and 280 V units on 230 V (67 %) pass;
+   * 525 V on 400 V (58 %), 600 V on 480 V (64 %) and 690 V on 230 V (11 %) do not
+   * (common practice, no source).
+   */
+  deliveryFloorPercent: 65,
+  /**
+   * Cost the unit choice minimises, in kvar-equivalents: nameplate kvar plus
+   * this much per unit bought (its case, terminals, fuse and wiring cost about
+   * as much as 2 kvar of low-voltage capacitance; common practice, no source).
+   */
+  unitCostKvar: 2,
+  /**
+   * Balancing compensator: |I2|/|I1| left at most 10 %. Current unbalance runs
+   * at about 6–10 × the voltage unbalance it causes (methods notes §3, secondary
+   * source), so this keeps well inside a 2 % voltage-unbalance budget
+   * (common practice, no source for the exact figure).
+   */
+  maxNegativeSequencePercent: 10,
+  /** Balancing compensator on a 4-wire board: neutral current left at most 20 % of |I1| (common practice, no source). */
+  maxNeutralPercent: 20,
   /** IEC 60831-1 capacitance tolerance −5 % … +10 % for units and banks up to 100 kvar (from memory). */
   capacitanceTolerance: { minusPercent: 5, plusPercent: 10 },
   /**
-   * Rated voltage at least 10 % above the highest applied voltage: IEEE 18 and
-   * IEC 60831-1 allow 110 % only as a contingency, so normal service should sit
-   * at or below rated (common practice, no source for the exact margin).
+   * Rated voltage above the nominal voltage across a unit, by practice.
+   * IEC practice: 10 % (a 400 V network gets 440 V units), so normal service
+   * sits below rated where harmonics and voltage rise add to it.
+   * North-American practice: 0 %, units at their nameplate voltage (480 V units
+   * on 480 V systems), relying on IEEE 18's 110 % continuous limit.
+   * Both common practice, no source (methods notes §10).
    */
-  voltageMarginPercent: 10,
+  voltageMarginPercent: { iec: 10, 'north-american': 0 },
+  /**
+   * Whatever the margin, the highest solved voltage across a unit stays within
+   * 110 % of its rating (IEEE 18 and IEC 60831-1 continuous limit, methods notes §4).
+   */
+  continuousVoltageLimit: 1.1,
+  /**
+   * Discharge time before a step may be switched on again, s, by practice:
+   * IEC 60831-1 ≤ 75 V within 3 min; NEC 460.6 ≤ 50 V within 1 min (methods notes §9).
+   */
+  dischargeTimeS: { iec: 180, 'north-american': 60 },
   /** Steady rise ΔV/V ≈ Qc/S_sc flagged above 3 % (common practice, no source). */
   voltageRiseLimitPercent: 3,
-  /**
-   * Unit selection treats installed kvar within this much of the least as equal
-   * and then prefers fewer units: a bank of many tiny units to save the last
-   * few percent is not a good design (common practice, no source).
-   */
-  selectionKvarSlackPercent: 5,
-  /** A unit giving less than this fraction of its rating where it is used is flagged (rated far above the applied voltage). */
-  underusedOutputFraction: 0.7,
   compensatorWeights: { negativeSequence: 1, zeroSequence: 1, reactive: 1 },
   /**
    * Ridge weight on Σ(branch kvar)², per unit, in the capacitor-only objective:

@@ -8,7 +8,7 @@
 import type { Phasor } from '../complex.js';
 import type { Board, PhaseId } from '../board/boardModel.js';
 import type { BoardResult, PowerFactorSense } from '../analysis/boardResult.js';
-import type { Arrangement, StepPattern } from './correctionSpec.js';
+import type { Arrangement, Practice } from './correctionSpec.js';
 import type { EquipmentGroup } from './equipment.js';
 import type { ResolvedTarget, TargetCheck } from './correctionTarget.js';
 
@@ -135,46 +135,113 @@ export interface CompensatorSizing {
 
 export interface SelectedUnit {
   readonly name: string;
+  readonly kind: 'three-phase' | 'single-phase';
+  /** Nameplate of the whole unit, kvar. */
   readonly ratedKvar: number;
+  /** Rated voltage, V (line-to-line for a three-phase unit). */
   readonly ratedV: number;
   readonly ratedHz: number;
-  /** `typical`: from the built-in list of typical ratings, not a vendor's catalogue. */
+  /** `typical`: from a built-in typical catalogue, not a vendor's. */
   readonly source: 'catalogue' | 'typical';
   /** Index in the user catalogue, or null for a typical unit. */
   readonly catalogueIndex: number | null;
-  readonly capacitanceUF: number;
-  /** Output of one unit at the applied voltage and the board frequency, kvar. */
-  readonly outputKvar: number;
+  /** Capacitance of one element (a three-phase unit has three), µF. */
+  readonly elementCapacitanceUF: number;
+  /** Share of the nameplate the unit delivers at the lowest applied voltage it sees and the board frequency. */
+  readonly deliveredFraction: number;
+}
+
+/**
+ * One step of a bank as built: a group of units switched together by one
+ * controller output (or the fixed part, always connected). Plain data that a
+ * time-series study can switch step by step.
+ */
+export interface BankStep {
+  /** Controller output (1-based); null for the fixed part. */
+  readonly output: number | null;
+  /** fixed: always on; balanced: equal on every branch of a three-phase set; trim: one branch; single: a lone branch of a split- or single-phase board. */
+  readonly part: 'fixed' | 'balanced' | 'trim' | 'single';
+  /** three-phase: balanced over three branches; single-phase: one branch. */
+  readonly kind: 'three-phase' | 'single-phase';
+  /** Branches the step adds capacitance to (`A-B`, `A-N`, `A-star`…). */
+  readonly branches: readonly string[];
+  readonly unit: SelectedUnit;
+  /** Units in the step. */
+  readonly units: number;
+  readonly nameplateKvar: number;
+  /** Output at the nominal voltage across its branches, kvar (the C/k basis). */
+  readonly kvarAtNominalV: number;
+  /** Output at the solved design-load voltage, kvar. */
+  readonly deliveredKvar: number;
+  /** Capacitance the step adds to each of its branches, µF. */
+  readonly capacitancePerBranchUF: number;
+  /**
+   * Detuning factor p of a series reactor, 0 for a plain step. A detuned step
+   * gives Q_r·(U/U_r)²/(1 − p); every output figure here already includes it.
+   */
+  readonly detuningFactor: number;
+  /** C/k of this step for the controller's CT, A on the secondary. */
+  readonly responseThresholdA: number;
+  readonly onAtDesign: boolean;
+}
+
+export interface ControllerSettings {
+  /** Outputs of the controller, and how many the bank uses. */
+  readonly outputs: number;
+  readonly outputsUsed: number;
+  /** one-line: an ordinary controller reading one CT; every-line: steps serve single lines, so the controller must measure each line. */
+  readonly measurement: 'one-line' | 'every-line';
+  readonly ctPrimaryA: number;
+  readonly ctSecondaryA: number;
+  readonly ctRatio: number;
+  /** True when trivar chose the CT primary (none given). */
+  readonly ctChosen: boolean;
+  readonly smallestStepKvar: number;
+  /** C/k of the smallest step, A on the CT secondary. */
+  readonly responseThresholdA: number;
+  /** Suggested setting: `settingFraction` × C/k. */
+  readonly responseSettingA: number;
+  readonly settingFraction: number;
+  /** PF band the controller holds: at least minPf lagging, at most maxPf lagging (null: up to unity). */
+  readonly targetBand: { readonly minPf: number; readonly maxPf: number | null; readonly leadingAllowed: boolean };
+  readonly switchingDelayS: number;
+  /** Discharge time of the practice, s. */
+  readonly dischargeTimeS: number;
+  /** A step is not switched on again before this, s (at least the discharge time). */
+  readonly reconnectionDelayS: number;
 }
 
 export interface BranchSelection {
   readonly branch: string;
-  /** Null when the branch needs no capacitor (or is a reactor). */
-  readonly unit: SelectedUnit | null;
-  /** Units permanently connected. */
-  readonly fixedUnits: number;
-  /** Units in each switched step, in pattern order. */
-  readonly stepUnits: readonly number[];
-  /** Which steps are on at the design load. */
-  readonly stepsOnAtDesign: readonly boolean[];
-  readonly installedUnits: number;
-  /** Sum of the nameplate ratings, kvar. */
-  readonly installedKvar: number;
+  /** Units serving this branch (a three-phase unit counts once per branch). */
+  readonly units: number;
+  /** This branch's share of the nameplate, kvar. */
+  readonly nameplateKvar: number;
   /** The sizing's requirement, µF (nominal capacitance). */
   readonly requiredCapacitanceUF: number;
   /** What the design state must reach so the target holds at the low tolerance, µF. */
   readonly minimumCapacitanceUF: number;
-  /** Most the design state may have so no line leads at the high tolerance, µF; null if not known. */
+  /** Most the design state may have so no line passes its bound at the high tolerance, µF; null if not known. */
   readonly maximumCapacitanceUF: number | null;
   readonly fixedCapacitanceUF: number;
   readonly designCapacitanceUF: number;
-  /** The highest voltage the branch sees, V, and what the unit's rating must cover (with margin). */
+  /** Nominal voltage the rating is based on, the highest solved voltage, and the rating a unit needs, V. */
+  readonly nominalV: number;
   readonly highestVoltageV: number;
   readonly requiredRatedV: number;
+  /** Delivered at the solved design-load voltage, kvar. */
   readonly designKvarAtAppliedV: number;
   readonly designCurrentA: number;
-  /** False when no combination met both window ends (see warnings). */
+  /** False when no build met both window ends (see warnings). */
   readonly withinWindow: boolean;
+}
+
+/** Branches no unit of the catalogue fits. */
+export interface UnbuildableBranches {
+  readonly branches: readonly string[];
+  readonly requiredRatedV: number;
+  readonly appliedV: number;
+  readonly message: string;
 }
 
 export interface BankSelection {
@@ -182,13 +249,26 @@ export interface BankSelection {
   /** The bank as chosen: design-state and fixed-part susceptance per branch. */
   readonly equipment: readonly EquipmentGroup[];
   readonly catalogue: 'user' | 'typical';
+  readonly practice: Practice;
+  /** The catalogue in words (`built-in typical IEC catalogue (50 Hz)`). */
+  readonly catalogueTitle: string;
   readonly catalogueNote: string;
-  readonly pattern: StepPattern;
   readonly capacitanceTolerance: { readonly minusPercent: number; readonly plusPercent: number };
+  /** Rating rule: at least (1 + margin) × nominal voltage across the unit, and the highest solved voltage within 110 % of rating. */
   readonly voltageMarginPercent: number;
+  readonly continuousLimitPercent: number;
+  readonly deliveryFloorPercent: number;
+  /** What the unit choice minimised, in words and as a figure (kvar-equivalents). */
+  readonly cost: { readonly statement: string; readonly unitCostKvar: number; readonly value: number };
+  readonly steps: readonly BankStep[];
+  readonly controller: ControllerSettings | null;
   readonly selections: readonly BranchSelection[];
-  readonly installedKvar: number;
-  readonly installedUnits: number;
+  readonly nameplateKvar: number;
+  /** Delivered at the solved design-load voltage with every step on, kvar. */
+  readonly deliveredKvar: number;
+  readonly units: number;
+  /** Null when every branch could be built. */
+  readonly unbuildable: UnbuildableBranches | null;
   readonly warnings: readonly CorrectionWarning[];
 }
 
@@ -263,6 +343,7 @@ export type CorrectionStatus =
   | 'meets-target-at-nominal-capacitance'
   | 'already-meets-target'
   | 'misses-target-with-available-units'
+  | 'no-suitable-units'
   | 'infeasible';
 
 export interface CorrectionReport {

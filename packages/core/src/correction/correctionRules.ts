@@ -14,9 +14,17 @@ const threePhase = (board: Board) => board.phases.length === 3;
 const definitionOf = (spec: CorrectionSpec) =>
   spec.target?.definition ?? (spec.arrangement === 'balancing-compensator' ? CORRECTION_DEFAULTS.compensatorDefinition : CORRECTION_DEFAULTS.definition);
 
+/** Arrangements that fit a board: a split-phase board takes a line-to-line capacitor as its "delta" bank. */
+export function arrangementsFor(board: Board): readonly NonNullable<CorrectionSpec['arrangement']>[] {
+  if (threePhase(board)) return ['star-bank', 'delta-bank', 'balancing-compensator'];
+  if (board.system === 'split-phase') return ['star-bank', 'delta-bank'];
+  return ['star-bank'];
+}
+
 function ruleArrangementFitsBoard(spec: CorrectionSpec, board: Board): InputIssue[] {
-  if (spec.arrangement !== 'star-bank' && !threePhase(board))
-    return [inputIssue('not_applicable', 'arrangement', `star-bank on a ${board.system} board (${spec.arrangement} needs three phases)`, spec.arrangement)];
+  const fits = arrangementsFor(board);
+  if (spec.arrangement !== undefined && !fits.includes(spec.arrangement))
+    return [inputIssue('not_applicable', 'arrangement', `${fits.join(' or ')} on a ${board.system} board (${spec.arrangement} needs three phases)`, spec.arrangement)];
   return [];
 }
 
@@ -59,7 +67,8 @@ function ruleTargetBounds(spec: CorrectionSpec): InputIssue[] {
 
 function ruleStarPoint(spec: CorrectionSpec, board: Board): InputIssue[] {
   if (spec.starPoint === undefined) return [];
-  if (spec.arrangement !== 'star-bank') return [inputIssue('not_applicable', 'starPoint', 'starPoint only with arrangement star-bank', spec.starPoint)];
+  if (spec.arrangement !== undefined && spec.arrangement !== 'star-bank')
+    return [inputIssue('not_applicable', 'starPoint', 'starPoint only with arrangement star-bank', spec.starPoint)];
   if (spec.starPoint === 'neutral' && (!board.hasNeutral || board.neutralOpen))
     return [inputIssue('no_neutral', 'starPoint', 'floating: this board has no neutral to tie the star point to', spec.starPoint)];
   if (spec.starPoint === 'floating' && !threePhase(board))
@@ -79,7 +88,7 @@ function ruleShare(spec: CorrectionSpec): InputIssue[] {
 function ruleCompensator(spec: CorrectionSpec, board: Board): InputIssue[] {
   const c = spec.compensator;
   if (!c) return [];
-  if (spec.arrangement !== 'balancing-compensator')
+  if (spec.arrangement !== undefined && spec.arrangement !== 'balancing-compensator')
     return [inputIssue('not_applicable', 'compensator', 'compensator settings only with arrangement balancing-compensator', 'compensator')];
   if (c.branches === 'delta-and-star' && (!board.hasNeutral || board.neutralOpen))
     return [inputIssue('no_neutral', 'compensator.branches', 'delta: this board has no neutral for line-to-neutral branches', c.branches)];

@@ -11,7 +11,8 @@ const percent = z.number().nonnegative();
 
 export const ARRANGEMENTS = ['star-bank', 'delta-bank', 'balancing-compensator'] as const;
 export const TARGET_DEFINITIONS = ['per-line', 'effective', 'vector', 'arithmetic', 'positive-sequence'] as const;
-export const STEP_PATTERNS = ['fixed', '1:1:1', '1:2:2', '1:2:4'] as const;
+export const PRACTICES = ['iec', 'north-american'] as const;
+export const CONTROLLER_OUTPUTS = [6, 8, 12] as const;
 
 export const targetSchema = z
   .strictObject({
@@ -37,21 +38,42 @@ export const targetSchema = z
 export const capacitorUnitSchema = z
   .strictObject({
     name: z.string().min(1).optional().describe('catalogue designation'),
-    ratedKvar: z.number().positive().describe('rated output at rated voltage and frequency, kvar (one capacitor element)'),
-    ratedV: z.number().positive().describe('rated voltage of the element, V rms'),
+    kind: z
+      .enum(['three-phase', 'single-phase'])
+      .optional()
+      .describe('three-phase: three delta-connected elements in one case, rated at the line-to-line voltage; single-phase: one element between two terminals; default single-phase'),
+    ratedKvar: z.number().positive().describe('rated output at rated voltage and frequency, kvar (the whole unit: all three elements of a three-phase unit)'),
+    ratedV: z.number().positive().describe('rated voltage, V rms (line-to-line for a three-phase unit)'),
     ratedHz: z.literal([50, 60]).describe('rated frequency, Hz'),
   })
-  .describe('one capacitor unit: a single capacitance between two terminals');
+  .describe('one capacitor unit as bought');
 
 export const bankSchema = z
   .strictObject({
-    pattern: z
-      .enum(STEP_PATTERNS)
+    minStepKvar: z.number().nonnegative().optional().describe('smallest switched step, kvar nameplate; default 1'),
+    trimSteps: z
+      .enum(['auto', 'none'])
       .optional()
-      .describe('switched-step ratios (three steps), or fixed for a bank with no switched steps; default 1:2:4'),
+      .describe('single-phase trim steps beside the equal three-phase steps where the board is unbalanced: auto (where they lower the cost or are needed) or none; default auto'),
     maxUnitsPerBranch: z.int().min(1).max(200).optional().describe('most units in one branch of the bank; default 24'),
   })
-  .describe('how each branch of the bank is built from units');
+  .describe('how the bank is built from units');
+
+export const controllerSchema = z
+  .strictObject({
+    outputs: z.literal(CONTROLLER_OUTPUTS).optional().describe('switched outputs of the controller (6, 8 or 12); default 6'),
+    ctPrimaryA: z.number().positive().optional().describe('current transformer primary, A; default the next standard rating at or above 1.25 × the largest line current'),
+    ctSecondaryA: z.literal([1, 5]).optional().describe('current transformer secondary, A; default 5'),
+    switchingDelayS: z.number().positive().max(3600).optional().describe('delay before a step is switched, s; default 30'),
+  })
+  .describe('the automatic controller that switches the steps');
+
+export const balanceTargetSchema = z
+  .strictObject({
+    maxNegativeSequencePercent: percent.max(100).optional().describe('balancing compensator: most |I2|/|I1| left, %; default 10'),
+    maxNeutralPercent: percent.max(300).optional().describe('balancing compensator on a 4-wire board: most neutral current left, % of |I1|; default 20'),
+  })
+  .describe('what a balancing compensator must leave of the unbalance it exists to remove');
 
 export const lightLoadSchema = z
   .strictObject({
@@ -89,7 +111,7 @@ export const toleranceSchema = z
 
 export const correctionSpecSchema = z
   .strictObject({
-    arrangement: z.enum(ARRANGEMENTS).describe('what to size'),
+    arrangement: z.enum(ARRANGEMENTS).optional().describe('what to size; without it every arrangement that fits the board is sized and compared'),
     target: targetSchema.optional(),
     starPoint: z
       .enum(['neutral', 'floating'])
@@ -102,17 +124,29 @@ export const correctionSpecSchema = z
         'star or delta bank with a board-wide target: equal kvar per branch (a three-phase bank), or in proportion to what each branch needs for unity PF; default equal',
       ),
     compensator: compensatorSchema.optional(),
+    balance: balanceTargetSchema.optional(),
+    practice: z
+      .enum(PRACTICES)
+      .optional()
+      .describe('regional practice: picks the built-in typical catalogue, the voltage margin and the discharge time; default north-american on a 60 Hz board, iec on 50 Hz'),
     catalogue: z
       .array(capacitorUnitSchema)
       .min(1)
       .optional()
-      .describe('capacitor units to build the bank from; default a built-in list of typical ratings'),
+      .describe('capacitor units to build the bank from; default the built-in typical catalogue of the practice'),
     bank: bankSchema.optional(),
+    controller: controllerSchema.optional(),
+    deliveryFloorPercent: z
+      .number()
+      .min(0)
+      .max(100)
+      .optional()
+      .describe('a unit must deliver at least this share of its nameplate kvar where it is used, %; default 65'),
     capacitanceTolerance: toleranceSchema.optional(),
     voltageMarginPercent: percent
       .max(100)
       .optional()
-      .describe('a unit must be rated at least this much above the highest voltage it sees, %; default 10'),
+      .describe('a unit must be rated at least this much above the nominal voltage across it, %; default 10 (iec) or 0 (north-american)'),
     lightLoad: lightLoadSchema.optional(),
     voltageRiseLimitPercent: z.number().positive().max(100).optional().describe('flag a steady voltage rise above this, %; default 3'),
   })
@@ -128,4 +162,6 @@ export type CompensatorSpec = z.infer<typeof compensatorSchema>;
 export type CapacitanceToleranceSpec = z.infer<typeof toleranceSchema>;
 export type Arrangement = (typeof ARRANGEMENTS)[number];
 export type TargetDefinition = (typeof TARGET_DEFINITIONS)[number];
-export type StepPattern = (typeof STEP_PATTERNS)[number];
+export type Practice = (typeof PRACTICES)[number];
+export type ControllerSpec = z.infer<typeof controllerSchema>;
+export type BalanceTargetSpec = z.infer<typeof balanceTargetSchema>;

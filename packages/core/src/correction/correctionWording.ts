@@ -56,8 +56,6 @@ export const infeasibleReason = {
 
 export const warningText = {
   alreadyMet: 'the board already meets the target: nothing to add',
-  unitVoltageLow: (name: string, ratedV: number, neededV: number) =>
-    `unit "${name}" (rated ${f1(ratedV)} V) is not used: its rating is below the ${f1(neededV)} V it needs (highest applied voltage plus margin)`,
   unitFrequency: (name: string, ratedHz: number, hz: number) =>
     `unit "${name}" is rated for ${ratedHz} Hz and used at ${hz} Hz: its output and current scale by ${f3(hz / ratedHz)}`,
   unitsBelowTarget: (branch: string) =>
@@ -72,11 +70,12 @@ export const warningText = {
   voltageRise: (what: string, percent: number, limit: number) => `${what} raises the board voltage by about ${percent.toFixed(2)} %, above the ${f1(limit)} % flag level`,
   lowResonance: (order: number) =>
     `the bank and the supply inductance resonate near harmonic order ${order.toFixed(1)}: with harmonic-producing loads on the board this needs a harmonic study and probably a detuned bank`,
-  unitUnderused: (branch: string, ratedV: number, appliedV: number, fraction: number) =>
-    `branch ${branch}: units rated ${f1(ratedV)} V used at ${f1(appliedV)} V give only ${(100 * fraction).toFixed(0)} % of their rating (square law); units rated nearer the applied voltage (still with the margin) would need less installed kvar`,
   partialBalance: (negative: number, zero: number, reactors: readonly string[]) =>
     `the capacitor-only compensator meets the power-factor target but balances only partly (|I2|/|I1| = ${negative.toFixed(1)} %, |I0|/|I1| = ${zero.toFixed(1)} %)${reactors.length ? `; full balance needs reactors on ${reactors.join(', ')}` : ''}`,
-  unitCount: (branch: string, max: number) => `branch ${branch}: the requirement needs more than ${max} units; the largest unit type was used anyway`,
+  outputsShort: (branches: readonly string[], outputs: number) =>
+    `${branches.join(', ')}: no build fits in ${outputs} controller output${outputs === 1 ? '' : 's'}; steps were merged beyond what the controller allows`,
+  stepBelowMinimum: (branches: readonly string[], minKvar: number) =>
+    `${branches.join(', ')}: no build keeps every switched step at or above ${f1(minKvar)} kvar; the closest build is used`,
   starPointShift: (shiftV: number, percent: number, lowV: number, highV: number) =>
     `the floating star point of the bank sits ${f1(shiftV)} V (${percent.toFixed(0)} % of line-to-neutral) from the centroid of the line voltages, so its elements see ${f1(lowV)}–${f1(highV)} V: a star bank with unequal branches on a board without a neutral works against itself; consider a delta bank`,
   reactorsNotSelected: 'reactors are given as continuous values only (kvar, mH); choosing reactor hardware is not part of this study',
@@ -109,21 +108,26 @@ export const compensatorWording = {
 
 export const selectionWording = {
   typicalNote:
-    'units from the built-in list of typical ratings (typical catalogue practice, not any vendor\'s range): check the real ratings, tolerance and discharge time of the units you buy',
+    'typical ratings, not any vendor\'s range: check the real ratings, tolerance and discharge time of the units you buy',
   userNote: 'units from the catalogue given',
-  noUnit: (branches: readonly string[], neededV: number) =>
-    `at least one unit rated ${neededV.toFixed(1)} V or more (the highest voltage across ${branches.join(', ')} plus the margin)`,
+  noUnit: (branches: readonly string[], neededV: number, appliedV: number, catalogue: string, floorPercent: number, ratings: readonly number[]) =>
+    `no unit in the ${catalogue} fits ${branches.join(', ')}: a unit there must be rated at least ${f1(neededV)} V and still deliver ${floorPercent.toFixed(0)} % of its nameplate at ${f1(appliedV)} V, i.e. be rated at most ${f1(appliedV / Math.sqrt(floorPercent / 100))} V; the catalogue has ${ratings.map((v) => `${v}`).join(', ')} V`,
+  costStatement: (unitCostKvar: number) =>
+    `least cost = nameplate kvar + ${unitCostKvar} kvar-equivalent per unit bought, among the builds that best fit the tolerance window, the controller outputs and the minimum step`,
 };
 
+const bankWords = (delivered: number, nameplate: number) => `${delivered.toFixed(2)} kvar delivered (${nameplate.toFixed(2)} kvar nameplate)`;
+
 export const reportSummary = {
-  'meets-target': (what: string, kvar: number) => `${what}: ${kvar.toFixed(2)} kvar installed meets the target`,
-  'meets-target-at-nominal-capacitance': (what: string, kvar: number) =>
-    `${what}: ${kvar.toFixed(2)} kvar installed meets the target at nominal capacitance but not at every end of the tolerance`,
+  'meets-target': (what: string, delivered: number, nameplate: number) => `${what}: ${bankWords(delivered, nameplate)} meets the target`,
+  'meets-target-at-nominal-capacitance': (what: string, delivered: number, nameplate: number) =>
+    `${what}: ${bankWords(delivered, nameplate)} meets the target at nominal capacitance but not at every end of the tolerance`,
   'already-meets-target': (what: string) => `${what}: the board already meets the target, nothing to add`,
-  'misses-target-with-available-units': (what: string, kvar: number) =>
-    `${what}: the best combination of the available units (${kvar.toFixed(2)} kvar) misses the target`,
-  infeasible: (what: string, kvar: number) =>
-    `${what}: the target cannot be met with capacitors in this arrangement; the best reachable uses ${kvar.toFixed(2)} kvar`,
+  'misses-target-with-available-units': (what: string, delivered: number, nameplate: number) =>
+    `${what}: the best build of the available units, ${bankWords(delivered, nameplate)}, misses the target`,
+  'no-suitable-units': (what: string) => `${what}: no unit of the catalogue suits the voltage across the bank`,
+  infeasible: (what: string, delivered: number, nameplate: number) =>
+    `${what}: the target cannot be met with capacitors in this arrangement; the best reachable build is ${bankWords(delivered, nameplate)}`,
 };
 
 export const ARRANGEMENT_NAMES = { 'star-bank': 'star bank', 'delta-bank': 'delta bank', 'balancing-compensator': 'balancing compensator' } as const;

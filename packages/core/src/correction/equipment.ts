@@ -39,14 +39,17 @@ export function starSlots(board: Board, starPoint: 'neutral' | 'floating'): Bran
   return board.phases.map((p) => ({ branch: `${p}-${to === 'N' ? 'N' : 'star'}`, from: p, to, vNominal: board.nominalLineToNeutralV }));
 }
 
-/** One element per line pair, A-B, B-C, C-A. */
+/** One element per line pair: A-B, B-C, C-A on a three-phase board; the one line-to-line capacitor A-B on a split-phase board. */
 export function deltaSlots(board: Board): BranchSlot[] {
   const ll = board.nominalLineToLineV ?? board.nominalLineToNeutralV;
-  const pairs: [PhaseId, PhaseId][] = [
-    ['A', 'B'],
-    ['B', 'C'],
-    ['C', 'A'],
-  ];
+  const pairs: [PhaseId, PhaseId][] =
+    board.phases.length === 2
+      ? [['A', 'B']]
+      : [
+          ['A', 'B'],
+          ['B', 'C'],
+          ['C', 'A'],
+        ];
   return pairs.map(([from, to]) => ({ branch: `${from}-${to}`, from, to, vNominal: ll }));
 }
 

@@ -16,7 +16,9 @@ export function scaleBoardLoads(board: Board, lightLoad: LightLoadSpec): Board {
     ...board,
     loads: board.loads.map((load) => {
       if (load.origin !== 'board') return load;
-      const k = lightLoad.perLoad?.[load.name] ?? lightLoad.fraction;
+      // Load names are user text: "constructor" or "toString" must not find Object.prototype members.
+      const perLoad = lightLoad.perLoad;
+      const k = perLoad && Object.hasOwn(perLoad, load.name) ? perLoad[load.name]! : lightLoad.fraction;
       return { ...load, branches: load.branches.map((b) => ({ ...b, sNominal: scale(b.sNominal, k) })) };
     }),
   };

@@ -1,46 +1,59 @@
 /**
- * From continuous ratings to hardware: each capacitor branch becomes a fixed
- * part plus switched steps built from catalogue units.
+ * From continuous ratings to hardware: the bank as it is bought and installed.
  *
- * Work is done in capacitance, which does not depend on the voltage: a unit
- * rated Q_r at V_r, f_r has C = Q_r/(2π·f_r·V_r²) and gives ω·C·V² where it is
- * used. Per branch, with the sizing's requirement C_req:
- * - rated voltage ≥ highest voltage across the branch × (1 + margin) (for a floating star: the
- *   line-to-line voltage, which an element reaches when the star point moves);
- * - the design state (fixed part + the steps switched on at the design load)
- *   reaches C_req/(1 − tol⁻), so the target holds with the lowest capacitance,
- *   and stays ≤ C_limit/(1 + tol⁺), so no line leads with the highest; where no
- *   build fits that window, not leading comes first and the target second
- *   (see `tierOf`);
- * - the fixed part stays ≤ the light-load limit/(1 + tol⁺) (no fixed part
- *   without a light-load condition);
- * - among those, the least installed nameplate kvar — counting anything within
- *   5 % of it as equal and then taking the fewest units, then the finest step.
- *   All units of a branch are of one type.
+ * The branches of a bank form sets: the three branches of a delta or star bank
+ * are one three-phase set; a lone branch (split-phase, single-phase board) is a
+ * set of its own. A three-phase set gets equal three-phase steps (three-phase
+ * units in a delta bank, one single-phase unit per branch in a star bank) and,
+ * where the board is unbalanced, optional single-phase trim steps on single
+ * branches; a lone branch gets single-phase units. Work is done in capacitance,
+ * which does not depend on the voltage (C = Q_r/(2π·f_r·V_r²) per element).
+ *
+ * Rules, per branch:
+ * - rating ≥ (1 + margin) × nominal voltage across the unit (margin by practice)
+ *   and the highest solved voltage ≤ 110 % of rating (IEEE 18 / IEC 60831-1);
+ * - a unit delivers at least the delivery floor of its nameplate where it is used;
+ * - the design state (everything on at the design load) reaches C_req/(1 − tol⁻)
+ *   and stays ≤ C_limit/(1 + tol⁺) (see `tierOf` for the order of compromises);
+ * - the fixed part stays within what the light load can take at +tol;
+ * - at most the controller's outputs, every switched step at least the minimum step.
+ * Among builds that fit equally well, the least cost = nameplate kvar + a fixed
+ * kvar-equivalent per unit (weights in `CORRECTION_DEFAULTS`).
  */
 import * as z from 'zod';
-import { InputError, inputIssue } from '../errors.js';
-import { capacitorUnitSchema, STEP_PATTERNS, type CapacitanceToleranceSpec, type CapacitorUnitSpec, type StepPattern } from './correctionSpec.js';
+import { CONTROLLER_OUTPUTS, PRACTICES, capacitorUnitSchema, type CapacitanceToleranceSpec, type CapacitorUnitSpec, type ControllerSpec, type Practice, type TargetSpec } from './correctionSpec.js';
 import { CORRECTION_DEFAULTS } from './correctionDefaults.js';
-import { capacitorOutput, unitCapacitanceF } from './capacitorOutput.js';
-import { TYPICAL_CAPACITOR_UNITS } from './typicalCapacitorUnits.js';
+import { TYPICAL_CATALOGUES, catalogueUnitOf, type CatalogueUnit } from './unitCatalogues.js';
 import type { EquipmentBranch, EquipmentGroup } from './equipment.js';
-import type { BankSelection, BranchSelection, BranchSizing, CorrectionWarning, SizedEquipment } from './correctionResult.js';
+import type { BankSelection, BankStep, BranchSelection, CorrectionWarning, SelectedUnit, SizedEquipment, UnbuildableBranches } from './correctionResult.js';
 import { selectionWording, warningText } from './correctionWording.js';
 import { parseOptions } from '../_internal/zodIssues.js';
-import { candidatesFor, shortOfTarget, type Need, type UsableUnit } from './_internal/bankBuilds.js';
+import { searchSet, shortOfTarget, type Need, type SetBuild, type UnitChoice } from './_internal/bankSearch.js';
+import { controllerSettings, resolveCurrentTransformer, responseThresholdA } from './controllerSettings.js';
 
 export interface SelectBankUnitsOptions {
-  /** Units to build from. @defaultValue the built-in typical ratings at the board frequency (`TYPICAL_CAPACITOR_UNITS`) */
+  /** Regional practice: typical catalogue, voltage margin, discharge time. @defaultValue 'north-american' at 60 Hz, 'iec' at 50 Hz */
+  readonly practice?: Practice;
+  /** Units to build from. @defaultValue the practice's built-in typical catalogue (`TYPICAL_CATALOGUES`) */
   readonly catalogue?: readonly CapacitorUnitSpec[];
-  /** Switched-step ratios, or `fixed` for no switched steps. @defaultValue '1:2:4' */
-  readonly pattern?: StepPattern;
+  /** Smallest switched step, kvar nameplate. @defaultValue 1 */
+  readonly minStepKvar?: number;
+  /** Single-phase trim steps on unbalanced three-phase sets. @defaultValue 'auto' */
+  readonly trimSteps?: 'auto' | 'none';
   /** Most units in one branch. @defaultValue 24 */
   readonly maxUnitsPerBranch?: number;
+  /** The controller: outputs, CT, switching delay. @defaultValue 6 outputs, CT chosen from the line current, 30 s */
+  readonly controller?: ControllerSpec;
+  /** Target the controller holds (its band). @defaultValue `{ pf: 0.95 }` */
+  readonly target?: TargetSpec;
+  /** Largest line current at the design load, A, for the CT. @defaultValue read from the sizing's line comparison */
+  readonly lineCurrentA?: number;
   /** Capacitance tolerance, %. @defaultValue `{ minusPercent: 5, plusPercent: 10 }` (IEC 60831-1, from memory) */
   readonly capacitanceTolerance?: CapacitanceToleranceSpec;
-  /** Rated voltage must exceed the highest applied voltage by this, %. @defaultValue 10 */
+  /** Rated voltage above the nominal voltage across a unit, %. @defaultValue 10 (iec) or 0 (north-american) */
   readonly voltageMarginPercent?: number;
+  /** Least share of its nameplate a unit must deliver where used, %. @defaultValue 65 */
+  readonly deliveryFloorPercent?: number;
   /**
    * The same sizing run on the light-load board. Its limit (or value) per
    * branch caps the fixed part, and its voltages join the rating check.
@@ -50,202 +63,306 @@ export interface SelectBankUnitsOptions {
 }
 
 const selectOptionsSchema = z.strictObject({
+  practice: z.enum(PRACTICES).optional(),
   catalogue: z.array(capacitorUnitSchema).min(1).optional(),
-  pattern: z.enum(STEP_PATTERNS).optional(),
+  minStepKvar: z.number().nonnegative().optional(),
+  trimSteps: z.enum(['auto', 'none']).optional(),
   maxUnitsPerBranch: z.int().min(1).max(200).optional(),
+  controller: z
+    .strictObject({
+      outputs: z.literal(CONTROLLER_OUTPUTS).optional(),
+      ctPrimaryA: z.number().positive().optional(),
+      ctSecondaryA: z.literal([1, 5]).optional(),
+      switchingDelayS: z.number().positive().max(3600).optional(),
+    })
+    .optional(),
+  target: z.custom<TargetSpec>((v) => typeof v === 'object' && v !== null).optional(),
+  lineCurrentA: z.number().nonnegative().optional(),
   capacitanceTolerance: z.strictObject({ minusPercent: z.number().min(0).max(50).optional(), plusPercent: z.number().min(0).max(50).optional() }).optional(),
   voltageMarginPercent: z.number().min(0).max(100).optional(),
+  deliveryFloorPercent: z.number().min(0).max(100).optional(),
   lightLoad: z.custom<SizedEquipment>((v) => typeof v === 'object' && v !== null && Array.isArray((v as SizedEquipment).branches)).optional(),
 });
 
-const MULTIPLIERS: Record<StepPattern, readonly number[]> = { fixed: [], '1:1:1': [1, 1, 1], '1:2:2': [1, 2, 2], '1:2:4': [1, 2, 4] };
+/** Practice a board follows when none is given: 60 Hz boards are taken as North-American, 50 Hz as IEC (a rule of thumb; set `practice` where it is wrong). */
+export const defaultPractice = (frequencyHz: number): Practice => (frequencyHz === 60 ? 'north-american' : 'iec');
 
-interface ResolvedSelectOptions {
-  readonly units: readonly UsableUnit[];
-  readonly typical: boolean;
-  readonly pattern: StepPattern;
-  readonly maxUnits: number;
-  readonly minus: number;
-  readonly plus: number;
-  readonly margin: number;
-  readonly lightLoad: SizedEquipment | null;
+interface Usable {
+  readonly unit: CatalogueUnit;
+  readonly index: number | null;
 }
 
-function resolveSelectOptions(sized: SizedEquipment, input: SelectBankUnitsOptions | undefined): ResolvedSelectOptions {
-  const options = parseOptions(selectOptionsSchema, input, 'selectBankUnits options');
-  const typical = options.catalogue === undefined;
-  const units = typical
-    ? TYPICAL_CAPACITOR_UNITS.filter((u) => u.ratedHz === sized.frequencyHz).map((unit) => ({ unit, index: null }))
-    : options.catalogue!.map((unit, index) => ({ unit, index }));
-  const tol = options.capacitanceTolerance ?? {};
-  return {
-    units,
-    typical,
-    pattern: options.pattern ?? CORRECTION_DEFAULTS.pattern,
-    maxUnits: options.maxUnitsPerBranch ?? CORRECTION_DEFAULTS.maxUnitsPerBranch,
-    minus: (tol.minusPercent ?? CORRECTION_DEFAULTS.capacitanceTolerance.minusPercent) / 100,
-    plus: (tol.plusPercent ?? CORRECTION_DEFAULTS.capacitanceTolerance.plusPercent) / 100,
-    margin: (options.voltageMarginPercent ?? CORRECTION_DEFAULTS.voltageMarginPercent) / 100,
-    lightLoad: options.lightLoad ?? null,
-  };
-}
+/** Headroom over the requirement where the sizing knows no limit (common practice, no source). */
+const NO_LIMIT_HEADROOM = 1.25;
+
+const elementF = (u: CatalogueUnit) => ((u.kind === 'three-phase' ? u.ratedKvar / 3 : u.ratedKvar) * 1000) / (2 * Math.PI * u.ratedHz * u.ratedV ** 2);
 
 /**
- * Chooses units for each capacitor branch of a sized bank or compensator.
+ * Chooses units, steps and controller settings for a sized bank or compensator.
  * Reactor branches are kept at their continuous value (not selected).
  * @param sized a `BankSizing` or a `CompensatorSolution`
- * @returns per branch the unit, the fixed and switched counts, the steps on at
- *   the design load, installed kvar and capacitance, and the bank as equipment
- * @throws {InputError} for an empty catalogue (`catalogue`), or when no unit is
- *   rated for the voltage a branch sees (`catalogue`)
+ * @returns the steps as built (fixed part, balanced and trim steps, each with its
+ *   units, nameplate and delivered kvar and C/k), controller settings, per branch
+ *   the design and fixed capacitance against its window, nameplate and delivered
+ *   totals, what was minimised, and the bank as equipment for `verifyCorrection`.
+ *   Branches no unit fits are listed in `unbuildable` (and left empty).
+ * @throws {InputError} for options that are not valid (field path in each issue)
  * @example
- * const selection = selectBankUnits(sizeDeltaBank(board, { target: { pf: 0.95 } }), { pattern: '1:2:4' });
- * selection.selections[0].stepUnits //=> [k, 2k, 4k] units per switched step, e.g. [1, 2, 4]
- * selection.equipment // the bank as built, for verifyCorrection
+ * const selection = selectBankUnits(sizeDeltaBank(board, { target: { pf: 0.95 } }));
+ * selection.steps.map((s) => s.nameplateKvar) //=> e.g. [10, 10, 10] (three equal three-phase steps)
+ * selection.controller?.responseThresholdA    //=> C/k of the smallest step, A
  */
 export function selectBankUnits(sized: SizedEquipment, options?: SelectBankUnitsOptions): BankSelection {
-  const opts = resolveSelectOptions(sized, options);
-  const multipliers = MULTIPLIERS[opts.pattern];
-  const omega = 2 * Math.PI * sized.frequencyHz;
-  const slots = sized.equipment.flatMap((g) => g.branches);
+  const opts = parseOptions(selectOptionsSchema, options, 'selectBankUnits options');
+  const practice = opts.practice ?? defaultPractice(sized.frequencyHz);
+  const typical = opts.catalogue === undefined;
+  const catalogueTitle = typical ? TYPICAL_CATALOGUES[practice].title : 'the catalogue given (catalogue)';
+  const all: Usable[] = typical ? TYPICAL_CATALOGUES[practice].units.map((unit) => ({ unit, index: null })) : opts.catalogue!.map((u, index) => ({ unit: catalogueUnitOf(u, index), index }));
+  const tol = opts.capacitanceTolerance ?? {};
+  const minus = (tol.minusPercent ?? CORRECTION_DEFAULTS.capacitanceTolerance.minusPercent) / 100;
+  const plus = (tol.plusPercent ?? CORRECTION_DEFAULTS.capacitanceTolerance.plusPercent) / 100;
+  const margin = (opts.voltageMarginPercent ?? CORRECTION_DEFAULTS.voltageMarginPercent[practice]) / 100;
+  const floor = (opts.deliveryFloorPercent ?? CORRECTION_DEFAULTS.deliveryFloorPercent) / 100;
+  const limitV = CORRECTION_DEFAULTS.continuousVoltageLimit;
+  const controllerSpec = opts.controller ?? {};
+  const outputs = controllerSpec.outputs ?? CORRECTION_DEFAULTS.controllerOutputs;
+  const minStepKvar = opts.minStepKvar ?? CORRECTION_DEFAULTS.minStepKvar;
+  const maxUnits = opts.maxUnitsPerBranch ?? CORRECTION_DEFAULTS.maxUnitsPerBranch;
+  const unitCostKvar = CORRECTION_DEFAULTS.unitCostKvar;
+  const hz = sized.frequencyHz;
+  const omega = 2 * Math.PI * hz;
   const warnings: CorrectionWarning[] = [];
   const warn = (code: string, message: string, path: string | null = null, value: number | null = null, threshold: number | null = null) =>
     warnings.push({ code, message, path, value, threshold });
-  const short: { branch: string; neededV: number }[] = [];
-  let highestNeed = 0;
-  const designB: number[] = [];
-  const fixedB: number[] = [];
 
-  const selections = sized.branches.map((b: BranchSizing, i): BranchSelection => {
+  // Per branch: the window and the voltage rule.
+  const slots = sized.equipment.flatMap((g) => g.branches);
+  const branchInfo = sized.branches.map((b, i) => {
     const slot = slots[i]!;
     const light = opts.lightLoad?.branches[i];
-    // The star point of a floating star bank moves as its steps switch (or a fuse opens): an
-    // element can then see up to the line-to-line voltage, so that is what its rating must cover.
-    const worstCaseV = slot.to === 'star' ? slot.vNominal * Math.sqrt(3) : slot.vNominal;
-    const highestVoltageV = Math.max(worstCaseV, b.appliedV, light?.appliedV ?? 0);
-    const requiredRatedV = highestVoltageV * (1 + opts.margin);
-    const requiredF = b.element === 'capacitor' ? b.susceptanceS / omega : 0;
-    const minF = requiredF / (1 - opts.minus);
-    const limitF = b.limitSusceptanceS !== null && b.element === 'capacitor' ? Math.max(b.limitSusceptanceS, 0) / omega : null;
-    const maxF = limitF === null ? null : limitF / (1 + opts.plus);
+    const highestVoltageV = Math.max(b.appliedV, light?.appliedV ?? 0);
+    const requiredRatedV = Math.max((1 + margin) * slot.vNominal, highestVoltageV / limitV);
+    const capacitor = b.element === 'capacitor';
+    const requiredF = capacitor ? b.susceptanceS / omega : 0;
+    const minF = requiredF / (1 - minus);
+    // Where the sizing gives no upper limit (the capacitor-only compensator), a branch takes at
+    // most a quarter more than it needs and an empty branch nothing: past that its lines lead.
+    const limitF =
+      b.element === 'reactor' ? null : b.limitSusceptanceS !== null ? Math.max(b.limitSusceptanceS, 0) / omega : capacitor ? (NO_LIMIT_HEADROOM * requiredF) : 0;
+    const maxF = limitF === null ? null : limitF / (1 + plus);
     const lightLimit = light ? Math.max(0, light.limitSusceptanceS ?? light.susceptanceS) : 0;
-    const fixedMaxF = Math.min(lightLimit / omega / (1 + opts.plus), minF);
-    const empty = (): BranchSelection => {
-      // A reactor stays as sized (continuous); an empty branch is built as nothing.
-      const reactor = b.element === 'reactor';
-      designB.push(reactor ? b.susceptanceS : 0);
-      fixedB.push(reactor ? b.susceptanceS : 0);
-      return {
-        branch: b.branch,
-        unit: null,
-        fixedUnits: 0,
-        stepUnits: [],
-        stepsOnAtDesign: [],
-        installedUnits: 0,
-        installedKvar: 0,
-        requiredCapacitanceUF: requiredF * 1e6,
-        minimumCapacitanceUF: minF * 1e6,
-        maximumCapacitanceUF: maxF === null ? null : maxF * 1e6,
-        fixedCapacitanceUF: 0,
-        designCapacitanceUF: 0,
-        highestVoltageV,
-        requiredRatedV,
-        designKvarAtAppliedV: reactor ? b.kvarAtAppliedV : 0,
-        designCurrentA: reactor ? b.currentA : 0,
-        withinWindow: requiredF === 0,
-      };
-    };
-    if (b.element !== 'capacitor') return empty();
-    highestNeed = Math.max(highestNeed, requiredRatedV);
-    const usable = opts.units.filter(({ unit }) => unit.ratedV >= requiredRatedV * (1 - 1e-12));
-    if (!usable.length) {
-      short.push({ branch: b.branch, neededV: requiredRatedV });
-      return empty();
-    }
+    const fixedMaxF = Math.min(lightLimit / omega / (1 + plus), minF);
     const need: Need = { nominalF: requiredF, minF, maxF, limitF, fixedMaxF };
-    let chosen = candidatesFor(usable, multipliers, need, opts.maxUnits);
-    if (!chosen) {
-      warn('unit-count', warningText.unitCount(b.branch, opts.maxUnits), 'bank.maxUnitsPerBranch', null, opts.maxUnits);
-      chosen = candidatesFor(usable, multipliers, need, Number.MAX_SAFE_INTEGER);
-    }
-    const c = chosen!;
-    if (c.tier === 1 || c.tier === 2) warn('tolerance-window', warningText.windowMissed(b.branch));
-    if (shortOfTarget(c.tier)) warn('units-below-target', warningText.unitsBelowTarget(b.branch));
-    if (c.tier === 5) warn('units-past-limit', warningText.unitsPastLimit(b.branch));
-    if (c.units === 0) return empty();
-    if (c.unit.ratedHz !== sized.frequencyHz)
-      warn('unit-frequency', warningText.unitFrequency(c.unit.name ?? `catalogue[${c.index}]`, c.unit.ratedHz, sized.frequencyHz), c.index === null ? null : `catalogue[${c.index}].ratedHz`, c.unit.ratedHz, sized.frequencyHz);
-    const cu = unitCapacitanceF(c.unit);
-    const fixedF = c.fixedUnits * cu;
-    designB.push(c.designF * omega);
-    fixedB.push(fixedF * omega);
-    const out = capacitorOutput(c.unit, { voltageV: b.appliedV, frequencyHz: sized.frequencyHz });
-    if (out.kvar < CORRECTION_DEFAULTS.underusedOutputFraction * c.unit.ratedKvar)
-      warn('unit-underused', warningText.unitUnderused(b.branch, c.unit.ratedV, b.appliedV, out.kvar / c.unit.ratedKvar), null, out.kvar / c.unit.ratedKvar, CORRECTION_DEFAULTS.underusedOutputFraction);
-    const designKvar = (c.designF * omega * b.appliedV ** 2) / 1000;
-    return {
-      branch: b.branch,
-      unit: {
-        name: c.unit.name ?? `catalogue[${c.index}]`,
-        ratedKvar: c.unit.ratedKvar,
-        ratedV: c.unit.ratedV,
-        ratedHz: c.unit.ratedHz,
-        source: opts.typical ? 'typical' : 'catalogue',
-        catalogueIndex: c.index,
-        capacitanceUF: cu * 1e6,
-        outputKvar: out.kvar,
-      },
-      fixedUnits: c.fixedUnits,
-      stepUnits: multipliers.map((m) => m * c.stepBase),
-      stepsOnAtDesign: c.stepsOn,
-      installedUnits: c.units,
-      installedKvar: c.installedKvar,
-      requiredCapacitanceUF: requiredF * 1e6,
-      minimumCapacitanceUF: minF * 1e6,
-      maximumCapacitanceUF: maxF === null ? null : maxF * 1e6,
-      fixedCapacitanceUF: fixedF * 1e6,
-      designCapacitanceUF: c.designF * 1e6,
-      highestVoltageV,
-      requiredRatedV,
-      designKvarAtAppliedV: designKvar,
-      designCurrentA: c.designF * omega * b.appliedV,
-      withinWindow: c.tier === 0,
-    };
+    return { b, slot, highestVoltageV, requiredRatedV, need, capacitor };
   });
-  if (short.length) {
-    const neededV = Math.max(...short.map((s) => s.neededV));
-    throw new InputError(
-      [inputIssue('out_of_range', 'catalogue', selectionWording.noUnit(short.map((s) => s.branch), neededV), `units rated up to ${Math.max(...opts.units.map((u) => u.unit.ratedV))} V`)],
-      'no capacitor unit fits',
-    );
-  }
-  if (!opts.typical)
-    opts.units.forEach(({ unit, index }) => {
-      if (unit.ratedV < highestNeed * (1 - 1e-12))
-        warn('unit-voltage-low', warningText.unitVoltageLow(unit.name ?? `catalogue[${index}]`, unit.ratedV, highestNeed), `catalogue[${index}].ratedV`, unit.ratedV, highestNeed);
+
+  // Sets: a three-branch group is one three-phase set, anything else one set per branch.
+  let offset = 0;
+  const sets = sized.equipment.flatMap((g) => {
+    const indices = g.branches.map((_, k) => offset + k);
+    offset += g.branches.length;
+    if (g.branches.length === 3) return [{ group: g, indices }];
+    return indices.map((i) => ({ group: g, indices: [i] }));
+  });
+  const activeSets = sets.filter((s) => s.indices.some((i) => branchInfo[i]!.capacitor));
+  const outputsPerSet = Math.max(1, Math.floor(outputs / Math.max(1, activeSets.length)));
+
+  const fits = (u: CatalogueUnit, indices: readonly number[]) =>
+    indices.every((i) => {
+      const info = branchInfo[i]!;
+      const delivered = (info.b.appliedV / u.ratedV) ** 2 * (hz / u.ratedHz);
+      return u.ratedV >= info.requiredRatedV * (1 - 1e-12) && delivered >= floor - 1e-12;
     });
+  const choiceOf = (usable: Usable, unitsPerCount: number): UnitChoice => ({ unit: usable.unit, index: usable.index, elementF: elementF(usable.unit), unitsPerCount });
+
+  const designF = sized.branches.map(() => 0);
+  const fixedF = sized.branches.map(() => 0);
+  const builds: { set: (typeof sets)[number]; build: SetBuild }[] = [];
+  const unbuildable: number[] = [];
+  for (const set of sets) {
+    const infos = set.indices.map((i) => branchInfo[i]!);
+    if (!infos.some((x) => x.capacitor)) continue;
+    const three = set.indices.length === 3;
+    const delta = three && set.group.connection === 'ABC-delta';
+    const floating = three && set.group.branches.some((b) => b.to === 'star');
+    const singles = all.filter((u) => u.unit.kind === 'single-phase');
+    const balancedChoices: UnitChoice[] = three
+      ? [
+          ...(delta ? all.filter((u) => u.unit.kind === 'three-phase' && fits(u.unit, set.indices)).map((u) => choiceOf(u, 1)) : []),
+          ...singles.filter((u) => fits(u.unit, set.indices)).map((u) => choiceOf(u, 3)),
+        ]
+      : singles.filter((u) => fits(u.unit, set.indices)).map((u) => choiceOf(u, 1));
+    const trimsAllowed = three && !floating && (opts.trimSteps ?? CORRECTION_DEFAULTS.trimSteps) === 'auto';
+    const trimChoices = set.indices.map((i) => (trimsAllowed && branchInfo[i]!.capacitor ? singles.filter((u) => fits(u.unit, [i])).map((u) => choiceOf(u, 1)) : []));
+    if (!balancedChoices.length && !trimChoices.some((c) => c.length)) {
+      unbuildable.push(...set.indices.filter((i) => branchInfo[i]!.capacitor));
+      continue;
+    }
+    const build = searchSet(
+      infos.map((x) => x.need),
+      balancedChoices,
+      trimChoices,
+      { unitCostKvar, minSwitchedSteps: CORRECTION_DEFAULTS.minSwitchedSteps, minStepKvar, outputs: outputsPerSet, maxUnitsPerBranch: maxUnits },
+    );
+    set.indices.forEach((i, k) => {
+      designF[i] = build.designF[k]!;
+      fixedF[i] = build.fixedF[k]!;
+    });
+    builds.push({ set, build });
+    const names = set.indices.map((i) => branchInfo[i]!.b.branch);
+    build.tiers.forEach((tier, k) => {
+      const name = names[k]!;
+      if (tier === 1 || tier === 2) warn('tolerance-window', warningText.windowMissed(name));
+      if (shortOfTarget(tier) && infos[k]!.need.minF > 0) warn('units-below-target', warningText.unitsBelowTarget(name));
+      if (tier === 5) warn('units-past-limit', warningText.unitsPastLimit(name));
+    });
+    if (build.violations.outputs) warn('outputs-short', warningText.outputsShort(names, outputsPerSet), 'controller.outputs', outputs, null);
+    if (build.violations.minStep) warn('step-below-minimum', warningText.stepBelowMinimum(names, minStepKvar), 'bank.minStepKvar', null, minStepKvar);
+  }
+
+  // Steps, numbered across sets.
+  const ct = resolveCurrentTransformer(controllerSpec, opts.lineCurrentA ?? largestLineCurrent(sized));
+  const steps: BankStep[] = [];
+  let output = 0;
+  const selected = (c: UnitChoice, indices: readonly number[]): SelectedUnit => ({
+    name: c.unit.name,
+    kind: c.unit.kind,
+    ratedKvar: c.unit.ratedKvar,
+    ratedV: c.unit.ratedV,
+    ratedHz: c.unit.ratedHz,
+    source: typical ? 'typical' : 'catalogue',
+    catalogueIndex: c.index,
+    elementCapacitanceUF: c.elementF * 1e6,
+    deliveredFraction: Math.min(...indices.map((i) => (branchInfo[i]!.b.appliedV / c.unit.ratedV) ** 2 * (hz / c.unit.ratedHz))),
+  });
+  const makeStep = (part: BankStep['part'], c: UnitChoice, count: number, indices: readonly number[], switched: boolean): BankStep => {
+    const three = indices.length === 3;
+    const perBranchF = count * c.elementF;
+    const kvarAt = (v: (i: number) => number) => indices.reduce((s, i) => s + (perBranchF * omega * v(i) ** 2) / 1000, 0);
+    const kvarAtNominalV = kvarAt((i) => branchInfo[i]!.slot.vNominal);
+    const slot = branchInfo[indices[0]!]!.slot;
+    const lineToLine = slot.to === 'N' || slot.to === 'star' ? slot.vNominal * Math.sqrt(3) : slot.vNominal;
+    const kind = three ? 'three-phase' : 'single-phase';
+    if (c.unit.ratedHz !== hz && c.index !== null)
+      warn('unit-frequency', warningText.unitFrequency(c.unit.name, c.unit.ratedHz, hz), `catalogue[${c.index}].ratedHz`, c.unit.ratedHz, hz);
+    return {
+      output: switched ? ++output : null,
+      part,
+      kind,
+      branches: indices.map((i) => branchInfo[i]!.b.branch),
+      unit: selected(c, indices),
+      units: count * c.unitsPerCount,
+      nameplateKvar: count * c.unitsPerCount * c.unit.ratedKvar,
+      kvarAtNominalV,
+      deliveredKvar: kvarAt((i) => branchInfo[i]!.b.appliedV),
+      capacitancePerBranchUF: perBranchF * 1e6,
+      detuningFactor: 0,
+      responseThresholdA: responseThresholdA(kvarAtNominalV, kind, three ? lineToLine : slot.vNominal, ct.primaryA / ct.secondaryA),
+      onAtDesign: true,
+    };
+  };
+  for (const { set, build } of builds) {
+    const lone = set.indices.length === 1;
+    if (build.balanced) {
+      const { choice, fixedCount, stepCounts } = build.balanced;
+      if (fixedCount > 0) steps.push(makeStep('fixed', choice, fixedCount, set.indices, false));
+      for (const count of stepCounts) steps.push(makeStep(lone ? 'single' : 'balanced', choice, count, set.indices, true));
+    }
+    for (const t of build.trims) steps.push(makeStep('trim', t.choice, t.count, [set.indices[t.branch]!], true));
+  }
+  // Fixed parts first, then outputs in order.
+  steps.sort((a, b) => (a.output ?? 0) - (b.output ?? 0));
+
+  let unbuildableInfo: UnbuildableBranches | null = null;
+  if (unbuildable.length) {
+    const requiredRatedV = Math.max(...unbuildable.map((i) => branchInfo[i]!.requiredRatedV));
+    const appliedV = Math.min(...unbuildable.map((i) => branchInfo[i]!.b.appliedV));
+    const names = unbuildable.map((i) => branchInfo[i]!.b.branch);
+    unbuildableInfo = {
+      branches: names,
+      requiredRatedV,
+      appliedV,
+      message: selectionWording.noUnit(names, requiredRatedV, appliedV, catalogueTitle, floor * 100, [...new Set(all.map((u) => u.unit.ratedV))].sort((a, b) => a - b)),
+    };
+  }
   if (sized.branches.some((b) => b.element === 'reactor')) warn('reactors-not-selected', warningText.reactorsNotSelected);
 
   let k = 0;
   const equipment: EquipmentGroup[] = sized.equipment.map((g) => ({
     ...g,
     branches: g.branches.map((br): EquipmentBranch => {
-      const design = designB[k]!;
-      const fixed = fixedB[k++]!;
-      return { ...br, susceptanceS: design, fixedSusceptanceS: fixed };
+      const i = k++;
+      const b = sized.branches[i]!;
+      const reactor = b.element === 'reactor';
+      return { ...br, susceptanceS: reactor ? b.susceptanceS : designF[i]! * omega, fixedSusceptanceS: reactor ? b.susceptanceS : fixedF[i]! * omega };
     }),
   }));
+  const perBranch = (i: number) => {
+    const name = branchInfo[i]!.b.branch;
+    const on = steps.filter((s) => s.branches.includes(name));
+    return {
+      units: on.reduce((s, st) => s + st.units / st.branches.length, 0),
+      nameplateKvar: on.reduce((s, st) => s + st.nameplateKvar / st.branches.length, 0),
+    };
+  };
+  const selections = branchInfo.map(({ b, slot, need, highestVoltageV, requiredRatedV }, i): BranchSelection => {
+    const share = perBranch(i);
+    const reactor = b.element === 'reactor';
+    const design = designF[i]!;
+    return {
+      branch: b.branch,
+      units: share.units,
+      nameplateKvar: share.nameplateKvar,
+      requiredCapacitanceUF: need.nominalF * 1e6,
+      minimumCapacitanceUF: need.minF * 1e6,
+      maximumCapacitanceUF: need.maxF === null ? null : need.maxF * 1e6,
+      fixedCapacitanceUF: fixedF[i]! * 1e6,
+      designCapacitanceUF: design * 1e6,
+      nominalV: slot.vNominal,
+      highestVoltageV,
+      requiredRatedV,
+      designKvarAtAppliedV: reactor ? b.kvarAtAppliedV : (design * omega * b.appliedV ** 2) / 1000,
+      designCurrentA: reactor ? b.currentA : design * omega * b.appliedV,
+      withinWindow: need.nominalF === 0 ? design === 0 : builds.some(({ set, build }) => set.indices.includes(i) && build.tiers[set.indices.indexOf(i)] === 0),
+    };
+  });
+  const target = opts.target ?? {};
+  const perLine = steps.some((s) => s.output !== null && s.branches.length === 1) && slots.length > 1;
+  const controller = controllerSettings({
+    spec: controllerSpec,
+    practice,
+    ct,
+    steps,
+    band: { minPf: target.pf ?? CORRECTION_DEFAULTS.pf, maxPf: target.maxLaggingPf ?? null, leadingAllowed: target.leading === 'allowed' },
+    perLine,
+  });
+  const nameplateKvar = steps.reduce((s, st) => s + st.nameplateKvar, 0);
+  const units = steps.reduce((s, st) => s + st.units, 0);
   return {
-    frequencyHz: sized.frequencyHz,
+    frequencyHz: hz,
     equipment,
-    catalogue: opts.typical ? 'typical' : 'user',
-    catalogueNote: opts.typical ? selectionWording.typicalNote : selectionWording.userNote,
-    pattern: opts.pattern,
-    capacitanceTolerance: { minusPercent: opts.minus * 100, plusPercent: opts.plus * 100 },
-    voltageMarginPercent: opts.margin * 100,
+    catalogue: typical ? 'typical' : 'user',
+    practice,
+    catalogueTitle,
+    catalogueNote: typical ? selectionWording.typicalNote : selectionWording.userNote,
+    capacitanceTolerance: { minusPercent: minus * 100, plusPercent: plus * 100 },
+    voltageMarginPercent: margin * 100,
+    continuousLimitPercent: limitV * 100,
+    deliveryFloorPercent: floor * 100,
+    cost: { statement: selectionWording.costStatement(unitCostKvar), unitCostKvar, value: nameplateKvar + unitCostKvar * units },
+    steps,
+    controller,
     selections,
-    installedKvar: selections.reduce((s, x) => s + x.installedKvar, 0),
-    installedUnits: selections.reduce((s, x) => s + x.installedUnits, 0),
+    nameplateKvar,
+    deliveredKvar: steps.reduce((s, st) => s + st.deliveredKvar, 0),
+    units,
+    unbuildable: unbuildableInfo,
     warnings,
   };
+}
+
+/** Largest line current before correction, from a sizing's line comparison (0 when it has none). */
+function largestLineCurrent(sized: SizedEquipment): number {
+  const lines = (sized as { lines?: readonly { currentA: { before: number } }[] }).lines ?? [];
+  return Math.max(0, ...lines.map((l) => l.currentA.before));
 }

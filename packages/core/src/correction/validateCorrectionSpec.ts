@@ -7,7 +7,7 @@ import type { Board } from '../board/boardModel.js';
 import { InputError, type InputIssue } from '../errors.js';
 import { correctionSpecSchema, type CorrectionSpec } from './correctionSpec.js';
 import { CORRECTION_RULES } from './correctionRules.js';
-import { inputIssuesFromZod } from '../_internal/zodIssues.js';
+import { allInputIssues } from '../_internal/zodIssues.js';
 
 export type CorrectionSpecValidation = { ok: true; spec: CorrectionSpec } | { ok: false; issues: InputIssue[] };
 
@@ -17,7 +17,8 @@ export type CorrectionSpecValidation = { ok: true; spec: CorrectionSpec } | { ok
  */
 export function validateCorrectionSpec(input: unknown, board: Board): CorrectionSpecValidation {
   const parsed = correctionSpecSchema.safeParse(input);
-  if (!parsed.success) return { ok: false, issues: inputIssuesFromZod(parsed.error.issues, input) };
+  const shapeIssues = allInputIssues(parsed.success ? [] : parsed.error.issues, input);
+  if (!parsed.success || shapeIssues.length) return { ok: false, issues: shapeIssues };
   const issues = CORRECTION_RULES.flatMap((rule) => rule(parsed.data, board));
   return issues.length ? { ok: false, issues } : { ok: true, spec: parsed.data };
 }

@@ -116,6 +116,28 @@ export function solveCompiledInstallation(compiled: CompiledInstallation, option
   const { installation, layout, network: net } = compiled;
   net.solve(opts);
   const nodeVoltages = Array.from({ length: net.nodeCount }, (_, v): ComplexValue | null => (net.live[v] ? { re: net.voltageRe[v]!, im: net.voltageIm[v]! } : null));
+  const admittances = Array.from({ length: net.branchCount }, (_, k): ComplexValue => ({ re: net.admittanceRe[k]!, im: net.admittanceIm[k]! }));
+  const sourceCurrents = net.sourceCurrents();
+  return readInstallationSolution(installation, layout, { nodeVoltages, admittances, sourceCurrents, iterations: net.iterations, lastChange: net.lastChange, lowVoltageThreshold: opts.lowVoltageThreshold });
+}
+
+/** A solved state of an installation's circuit, however it was reached (fixed point, Newton). */
+export interface CircuitState {
+  /** Per circuit node; null for a dead node. */
+  readonly nodeVoltages: readonly (ComplexValue | null)[];
+  /** Per circuit branch, the admittance it had at the solution. */
+  readonly admittances: readonly ComplexValue[];
+  /** Per circuit source, the current it delivers out of its plus terminal. */
+  readonly sourceCurrents: readonly ComplexValue[];
+  readonly iterations: number;
+  readonly lastChange: number;
+  readonly lowVoltageThreshold: number;
+}
+
+/** Reads a solved circuit state board by board: line, neutral and branch currents in each board's terms. */
+export function readInstallationSolution(installation: Installation, layout: InstallationCircuit, state: CircuitState): InstallationSolution {
+  const { nodeVoltages } = state;
+  const live = (node: number) => node === REFERENCE || nodeVoltages[node] !== null;
   const at = (node: number): ComplexValue => (node === REFERENCE ? ZERO : (nodeVoltages[node] ?? ZERO));
   const count = installation.subBoards.length + 1;
   const loadsOf = (b: number) => (b === 0 ? installation.main.loads : installation.subBoards[b - 1]!.loads);
@@ -125,19 +147,19 @@ export function solveCompiledInstallation(compiled: CompiledInstallation, option
     branchStates.push(
       loadsOf(b).map((l) =>
         l.branches.map((): BranchState => {
-          const admittance = { re: net.admittanceRe[k]!, im: net.admittanceIm[k]! };
-          const active = net.isBranchActive(k);
-          const voltage = { re: net.branchVoltageRe(k), im: net.branchVoltageIm(k) };
+          const admittance = state.admittances[k]!;
+          const cb = layout.circuit.branches[k]!;
           k++;
-          if (!active) return { voltage: ZERO, current: ZERO, admittance, energised: false };
+          if (!live(cb.from) || !live(cb.to)) return { voltage: ZERO, current: ZERO, admittance, energised: false };
+          const voltage = sub(at(cb.from), at(cb.to));
           return { voltage, current: mul(admittance, voltage), admittance, energised: true };
         }),
       ),
     );
   }
+  const sourceCurrents = state.sourceCurrents;
   const phases = installation.main.phases;
   const hasNeutral = installation.main.hasNeutral;
-  const sourceCurrents = net.sourceCurrents();
   const lineCurrents: ComplexValue[][] = new Array(count);
   const neutralCurrents: (ComplexValue | null)[] = new Array(count).fill(null);
   const elementCurrent = (e: number) => {
@@ -182,9 +204,9 @@ export function solveCompiledInstallation(compiled: CompiledInstallation, option
       lineCurrents: lineCurrents[b]!,
       neutralCurrent: neutralCurrents[b]!,
       branches: branchStates[b]!,
-      iterations: net.iterations,
-      lastChange: net.lastChange,
-      lowVoltageThreshold: opts.lowVoltageThreshold,
+      iterations: state.iterations,
+      lastChange: state.lastChange,
+      lowVoltageThreshold: state.lowVoltageThreshold,
     };
     if (b === 0) return base;
     const parent = layout.topologies[installation.subBoards[b - 1]!.fedFrom]!;

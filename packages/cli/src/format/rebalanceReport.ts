@@ -1,0 +1,94 @@
+/** RebalanceReport → the text report of `trivar rebalance`. */
+import type { ConditionComparison, ConditionFigures, RebalanceReport } from '@trivar/core';
+import { fixed, renderTable, section } from './textTable.js';
+
+const FIGURE_WORDS: Record<string, string> = {
+  largestLine: 'largest line current (A)',
+  neutral: 'neutral current (A)',
+  currentUnbalance: 'current unbalance |I2|/|I1| (%)',
+  voltageUnbalance: 'voltage unbalance |V2|/|V1| (%)',
+};
+
+function scoreWords(r: RebalanceReport): string {
+  const over = r.conditions.length > 1 ? (r.combine === 'worst' ? ', worst condition' : ', weighted mean of conditions') : '';
+  if (r.aim === 'custom') return `custom score${over}`;
+  const aim = r.aim;
+  const terms = (Object.keys(aim) as (keyof typeof aim)[])
+    .filter((k) => aim[k] > 0)
+    .map((k) => (aim[k] === 1 ? FIGURE_WORDS[k]! : `${fixed(aim[k], 2)} × ${FIGURE_WORDS[k]!}`));
+  return `${terms.join(' + ')}${over}`;
+}
+
+/** Digits that keep a score readable whatever its size (a near-zero neutral still shows). */
+const score = (x: number) => (Math.abs(x) >= 100 ? fixed(x, 1) : Math.abs(x) >= 1 ? fixed(x, 2) : fixed(x, 3));
+
+function verdict(r: RebalanceReport): string {
+  const proof = r.proven
+    ? 'proven best'
+    : r.score.gapPercent !== null
+      ? `best found; at most ${fixed(r.score.gapPercent, 2)} % (${score(r.score.gap ?? 0)}) above the best possible`
+      : 'best found; no bound';
+  const limit = r.moveLimit === null ? '' : ` within ${r.moveLimit} move${r.moveLimit === 1 ? '' : 's'}`;
+  const near = r.nearBest ? ` — fewest moves within ${fixed(r.nearBest.percent, 1)} % of the best score ${score(r.nearBest.bestScore)}` : '';
+  return `${proof}${limit}${near}`;
+}
+
+function workOrder(r: RebalanceReport): string {
+  if (r.moves.length === 0) return '  (no moves)';
+  return renderTable(
+    [{ header: 'no.' }, { header: 'circuit', align: 'left' }, { header: 'now on', align: 'left' }, { header: 'move to', align: 'left' }],
+    r.moves.map((m) => [String(m.circuit), m.name, m.from, m.to]),
+  );
+}
+
+const amps = (x: number | null) => (x === null ? '-' : fixed(x, 1));
+const percent = (x: number | null) => (x === null ? '-' : fixed(x, 2));
+
+function conditionTable(c: ConditionComparison, lines: readonly string[]): string {
+  const rows: string[][] = [];
+  const row = (label: string, pick: (f: ConditionFigures) => string) =>
+    rows.push([label, pick(c.solved.before), pick(c.solved.after), pick(c.model.after)]);
+  lines.forEach((line, k) => row(`line ${line} (A)`, (f) => amps(f.lineA[k] ?? null)));
+  if (c.solved.before.neutralA !== null) row('neutral (A)', (f) => amps(f.neutralA));
+  if (c.solved.before.currentUnbalancePercent !== null) row('|I2|/|I1| (%)', (f) => percent(f.currentUnbalancePercent));
+  if (c.solved.before.voltageUnbalancePercent !== null)
+    rows.push(['|V2|/|V1| (%)', percent(c.solved.before.voltageUnbalancePercent), percent(c.solved.after.voltageUnbalancePercent), c.model.after.voltageUnbalancePercent === null ? '-' : percent(c.model.after.voltageUnbalancePercent)]);
+  return renderTable(
+    [{ header: '', align: 'left' }, { header: 'now' }, { header: 'after' }, { header: 'after (fast model)' }],
+    rows,
+  );
+}
+
+function moveTable(r: RebalanceReport): string {
+  const rows = (r.moveTable ?? []).map((t) => [
+    String(t.moves),
+    score(t.score),
+    t.lowerBound === null ? '-' : score(t.lowerBound),
+    t.withinCapacity ? (t.proven ? 'proven' : 'best found') : t.proven ? 'over capacity (no way within)' : 'over capacity',
+    String(t.movesUsed),
+  ]);
+  return renderTable(
+    [{ header: 'moves allowed' }, { header: 'score' }, { header: 'bound' }, { header: '', align: 'left' }, { header: 'moves used' }],
+    rows,
+  );
+}
+
+export function renderRebalanceReport(r: RebalanceReport): string {
+  const lines = r.conditions[0]?.solved.before.lineA.map((_, k) => 'ABC'[k]!) ?? [];
+  const parts: string[] = [
+    r.board.name,
+    `Rebalancing: ${r.search.movable} of ${r.search.circuits} circuits can move${r.search.pinned ? `, ${r.search.pinned} pinned` : ''}`,
+    `Score: ${scoreWords(r)}`,
+    `  now ${score(r.score.before)}  →  after ${score(r.score.after)}   lower bound ${r.score.lowerBound === null ? '-' : score(r.score.lowerBound)}`,
+    `  ${verdict(r)}`,
+  ];
+  parts.push(section(`Work order (${r.moves.length} move${r.moves.length === 1 ? '' : 's'})`) + workOrder(r));
+  for (const c of r.conditions) {
+    const title = r.conditions.length > 1 ? `Condition "${c.name}" (weight ${fixed(c.weight, 2)}), network re-solve` : 'Before and after, network re-solve';
+    parts.push(section(title) + conditionTable(c, lines));
+  }
+  if (r.moveTable && r.moveTable.length > 1) parts.push(section('Best score by moves allowed') + moveTable(r));
+  if (r.notes.length) parts.push(section('Notes') + r.notes.map((n) => `  * ${n}`).join('\n'));
+  parts.push(section('Cautions') + r.cautions.map((c) => `  * ${c}`).join('\n'));
+  return `${parts.join('\n')}\n`;
+}

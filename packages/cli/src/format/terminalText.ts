@@ -1,0 +1,30 @@
+/**
+ * User text on a terminal: control characters shown escaped, never executed.
+ * A circuit name may hold ESC sequences, newlines or NUL; on a terminal they
+ * could clear the screen, retitle the window or forge a report section. Text
+ * output escapes them here, in one place; JSON output stays exact.
+ */
+
+// C0 controls (tab and newline included: inside a name they would break the layout), DEL, C1 controls,
+// line/paragraph separators and the bidirectional overrides that can reorder what is shown.
+const CONTROL = /[\u0000-\u001f\u007f-\u009f\u2028\u2029\u202a-\u202e\u2066-\u2069]/g;
+
+const NAMED: Readonly<Record<string, string>> = { '\n': '\\n', '\r': '\\r', '\t': '\\t', '\u001b': '\\e', '\u0000': '\\0' };
+
+/** "a\u001b[2Jb" → "a\\e[2Jb": every control character as a visible escape. */
+export function escapeControlCharacters(text: string): string {
+  return text.replace(CONTROL, (c) => NAMED[c] ?? `\\u{${c.codePointAt(0)!.toString(16).toUpperCase()}}`);
+}
+
+/** A deep copy of plain result data with every string escaped for the terminal. */
+export function forTerminal<T>(value: T): T {
+  if (typeof value === 'string') return escapeControlCharacters(value) as T;
+  if (Array.isArray(value)) return value.map((v) => forTerminal(v)) as T;
+  if (value !== null && typeof value === 'object') {
+    const copy: Record<string, unknown> = {};
+    // Keys can be user text (load names): defined, not assigned, so "__proto__" stays an ordinary key.
+    for (const [k, v] of Object.entries(value)) Object.defineProperty(copy, k, { value: forTerminal(v), enumerable: true, writable: true, configurable: true });
+    return copy as T;
+  }
+  return value;
+}

@@ -1,0 +1,109 @@
+/**
+ * The state a board reaches when its neutral breaks, found by continuation:
+ * start from the intact board, put a resistance in series with the neutral
+ * conductor (a joint going bad), raise it step by step to open, and follow the
+ * solution, each step's Newton solve starting from the last state.
+ *
+ * Why follow rather than solve the open board directly: with constant-power
+ * loads in series behind a floating neutral the equations have more than one
+ * solution, and a direct solve lands on whichever its start happens to favour.
+ * Following the physical process picks the one the board actually moves into,
+ * or shows that the state it was in ceases to exist on the way (a fold: voltage
+ * collapse of the heavier side), which is an answer in itself.
+ */
+import { abs, add, complex, sub } from '../complex.js';
+import type { Board } from '../board/boardModel.js';
+import { solveNetwork, type NetworkSolution } from '../network/solveNetwork.js';
+import { solveNetworkByNewton } from '../network/solveNetworkByNewton.js';
+
+export interface FollowNeutralBreakOptions {
+  /**
+   * Per-unit branch voltage below which current and power parts of a load are
+   * held at their threshold admittance.
+   * @defaultValue 0.7
+   */
+  readonly lowVoltageThreshold?: number;
+}
+
+export interface NeutralBreakPath {
+  /** True when the state followed from the intact board still exists with the neutral open. */
+  readonly reachedOpen: boolean;
+  /**
+   * Fault resistance in series with the neutral conductor at which the followed
+   * state ceased to exist (ohm); null when it reached open, or was lost only on
+   * the last step from a nearly open neutral to open.
+   */
+  readonly lostAtOhms: number | null;
+  /** The state with the neutral open when `reachedOpen`; otherwise the last state followed. */
+  readonly state: NetworkSolution;
+  /** Fault resistance of `state`, ohm; null when it is the open-neutral state. */
+  readonly stateAtOhms: number | null;
+  /** Continuation steps taken. */
+  readonly steps: number;
+}
+
+/** Span of the fault resistance, as powers of ten of the board's load impedance. */
+const FIRST_DECADE = -4;
+const LAST_DECADE = 4;
+/** Step sizes in decades of fault resistance: start, largest, and the floor below which the state counts as lost. */
+const STEP = { start: 0.25, largest: 1, floor: 1e-3 } as const;
+/** A step may move no node by more than this fraction of nominal: larger means it jumped to another state. */
+const LARGEST_MOVE = 0.05;
+/** A Newton solve needing more iterations than this is too close to a fold to trust as "the same state". */
+const ITERATIONS_PER_STEP = 20;
+
+/** The board with a fault resistance added in series with its neutral conductor (or the neutral open when `ohms` is null). */
+export function withNeutralFault(board: Board, ohms: number | null): Board {
+  if (ohms === null) return { ...board, neutralOpen: true };
+  return { ...board, neutralOpen: false, neutralImpedance: add(board.neutralImpedance, complex(ohms, 0)) };
+}
+
+/** Impedance of the board's load at nominal voltage, ohm: the scale the fault resistance is swept over. */
+function loadImpedanceScale(board: Board): number {
+  let va = 0;
+  for (const load of board.loads) for (const b of load.branches) va += abs(b.sNominal);
+  return (board.nominalLineToNeutralV ** 2) / Math.max(va, 1);
+}
+
+function largestMove(a: NetworkSolution, b: NetworkSolution, vBase: number): number {
+  let largest = 0;
+  a.nodeVoltages.forEach((v, k) => {
+    const w = b.nodeVoltages[k];
+    if (v && w) largest = Math.max(largest, abs(sub(v, w)) / vBase);
+  });
+  return largest;
+}
+
+/**
+ * Follows a board from intact to open neutral (see the module comment).
+ * The board must have a neutral conductor.
+ * @throws {NumericalError} when the intact board itself cannot be solved.
+ */
+export function followNeutralBreak(board: Board, options: FollowNeutralBreakOptions = {}): NeutralBreakPath {
+  const lowVoltageThreshold = options.lowVoltageThreshold ?? 0.7;
+  const newton = { lowVoltageThreshold, maxIterations: ITERATIONS_PER_STEP };
+  const vBase = board.nominalLineToNeutralV;
+  const zScale = loadImpedanceScale(board);
+  // The intact board (a negligible fault, so the neutral bar is a node of its own as in every later step).
+  let decade = FIRST_DECADE;
+  let state = solveNetwork(withNeutralFault(board, zScale * 10 ** decade), { lowVoltageThreshold });
+  let step: number = STEP.start;
+  let steps = 0;
+  while (decade < LAST_DECADE) {
+    const next = Math.min(LAST_DECADE, decade + step);
+    const out = solveNetworkByNewton(withNeutralFault(board, zScale * 10 ** next), state.nodeVoltages, newton);
+    if (out.converged && largestMove(out.solution, state, vBase) <= LARGEST_MOVE) {
+      decade = next;
+      state = out.solution;
+      steps++;
+      step = Math.min(STEP.largest, step * 1.5);
+    } else {
+      step /= 2;
+      if (step < STEP.floor) return { reachedOpen: false, lostAtOhms: zScale * 10 ** decade, state, stateAtOhms: zScale * 10 ** decade, steps };
+    }
+  }
+  const open = solveNetworkByNewton(withNeutralFault(board, null), state.nodeVoltages, newton);
+  if (open.converged && largestMove(open.solution, state, vBase) <= LARGEST_MOVE)
+    return { reachedOpen: true, lostAtOhms: null, state: open.solution, stateAtOhms: null, steps: steps + 1 };
+  return { reachedOpen: false, lostAtOhms: null, state, stateAtOhms: zScale * 10 ** decade, steps };
+}

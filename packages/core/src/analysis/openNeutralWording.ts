@@ -1,0 +1,84 @@
+/** Limits and all wording of the open-neutral study's findings. */
+import type { OpenNeutralLoadReading, OpenNeutralState, OpenNeutralWithoutRule } from './boardResult.js';
+
+export const OPEN_NEUTRAL_LIMITS = {
+  /**
+   * A load's voltage differing by more than this % of nominal between the state
+   * reached and the all-impedance model makes the answer "depend on the load
+   * model" (common practice, no source: about half the ±10 % supply band).
+   */
+  modelDependencePercent: 5,
+  /** Two solutions closer than this % of nominal at every node are the same state. */
+  sameStatePercent: 0.5,
+  /** The follow without the low-voltage rule ending within this % of nominal of the state reached means the rule did not decide it. */
+  ruleAgreementPercent: 1,
+} as const;
+
+const fmt = (x: number, digits = 1) => x.toFixed(digits);
+const ohms = (r: number) => (r >= 10 ? fmt(r, 0) : r >= 1 ? fmt(r, 1) : r.toPrecision(2));
+
+function listLoads(loads: readonly OpenNeutralLoadReading[]): string {
+  const names = loads.map((l) => `"${l.name}"`);
+  return names.length <= 3 ? names.join(', ') : `${names.slice(0, 3).join(', ')} and ${names.length - 3} more`;
+}
+
+/** The load whose voltage differs most between two states of the same board. */
+function largestDifference(a: OpenNeutralState, b: OpenNeutralState) {
+  let best = { load: a.loads[0]!, other: b.loads[0]!, percent: 0 };
+  a.loads.forEach((l, k) => {
+    const other = b.loads[k]!;
+    const percent = Math.abs(l.voltagePercent - other.voltagePercent);
+    if (percent > best.percent) best = { load: l, other, percent };
+  });
+  return best;
+}
+
+const extremes = (s: OpenNeutralState) =>
+  `highest ${fmt(s.highestPercent)} %, lowest ${fmt(s.lowestPercent)} % of nominal`;
+
+export function openNeutralFindings(input: {
+  readonly reached: OpenNeutralState;
+  readonly reachedFromIntact: boolean;
+  readonly collapseAtOhms: number | null;
+  readonly impedanceModel: OpenNeutralState | null;
+  readonly otherStates: readonly OpenNeutralState[];
+  readonly withoutRule: OpenNeutralWithoutRule | null;
+  readonly lowVoltageRuleDecides: boolean;
+  readonly dependsOnLoadModel: boolean;
+  readonly thresholdPercent: number;
+}): string[] {
+  const out: string[] = [];
+  const { reached, withoutRule } = input;
+  if (!input.reachedFromIntact)
+    out.push(
+      `Followed from the intact board as a resistance in the neutral rises, the operating state ceases to exist${input.collapseAtOhms === null ? ' just before the neutral opens' : ` at about ${ohms(input.collapseAtOhms)} ohm`} (voltage collapse): the board jumps to another state. Shown is the worst state found (${extremes(reached)}).`,
+    );
+  if (input.lowVoltageRuleDecides) {
+    const below = reached.loads.filter((l) => l.belowLowVoltageRule);
+    const without = !withoutRule
+      ? ''
+      : withoutRule.reachedOpen
+        ? ` Without that rule the board would end at ${extremes(withoutRule.state)}.`
+        : ` Without that rule the state followed from the intact board ceases to exist${withoutRule.collapseAtOhms === null ? ' just before the neutral opens' : ` at about ${ohms(withoutRule.collapseAtOhms)} ohm in the neutral`}: constant-power loads on the most heavily loaded side cannot draw their power (voltage collapse).`;
+    out.push(
+      `This result rests on a modelling choice: ${listLoads(below)} ${below.length === 1 ? 'sits' : 'sit'} below ${fmt(input.thresholdPercent, 0)} % of nominal, where trivar takes constant-power and constant-current loads as impedances.${without} What the real equipment does at low voltage (drops out, stalls, keeps drawing power) decides these voltages.`,
+    );
+  }
+  if (input.otherStates.length > 0) {
+    const first = input.otherStates[0]!;
+    const diff = largestDifference(reached, first);
+    out.push(
+      `The open-neutral equations have ${input.otherStates.length + 1} solutions. Another one has "${diff.other.name}" at ${fmt(diff.other.voltage)} V (${fmt(diff.other.voltagePercent)} %) instead of ${fmt(diff.load.voltage)} V; it is not reached from the intact board${input.reachedFromIntact ? '' : ' either'}, so a direct solve of the open board alone could have reported it.`,
+    );
+  }
+  if (input.dependsOnLoadModel && input.impedanceModel) {
+    const diff = largestDifference(reached, input.impedanceModel);
+    out.push(
+      `The answer depends on the load model: with every load as a constant impedance, "${diff.load.name}" would see ${fmt(diff.other.voltage)} V (${fmt(diff.other.voltagePercent)} %) instead of ${fmt(diff.load.voltage)} V.`,
+    );
+  }
+  return out;
+}
+
+export const OPEN_NEUTRAL_METHOD =
+  'Found by following the board from intact to open: a resistance in series with the neutral conductor is raised step by step, as a failing joint would, and the state of the board is tracked.';

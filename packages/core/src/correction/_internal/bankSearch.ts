@@ -1,0 +1,265 @@
+/**
+ * The search behind `selectBankUnits` for one set of branches: a three-phase
+ * set (the three branches of a delta or star bank) gets a balanced part —
+ * three-phase units, or one single-phase unit per branch — that adds the same
+ * capacitance to every branch, plus optional single-phase trim units on single
+ * branches; a lone branch (split-phase, single-phase) gets single-phase units.
+ *
+ * Each build is judged per branch against the tolerance window (`tierOf`), then
+ * on the hardware rules (controller outputs, minimum step), then on the stated
+ * cost: nameplate kvar + a fixed kvar-equivalent per unit.
+ */
+import type { CatalogueUnit } from '../unitCatalogues.js';
+
+/** What one branch's design state should reach, F (capacitance). Null bounds are unknown. */
+export interface Need {
+  /** The sizing's requirement. */
+  readonly nominalF: number;
+  /** Requirement / (1 − tol⁻): met even with the lowest capacitance. */
+  readonly minF: number;
+  /** Limit / (1 + tol⁺): no line passes its upper bound even with the highest capacitance. */
+  readonly maxF: number | null;
+  /** The limit itself (nominal capacitance). */
+  readonly limitF: number | null;
+  /** Most the fixed part may have (light load). */
+  readonly fixedMaxF: number;
+}
+
+/** A unit that may be used on a set, with the capacitance it adds per branch. */
+export interface UnitChoice {
+  readonly unit: CatalogueUnit;
+  /** Index in the user catalogue; null for a typical unit. */
+  readonly index: number | null;
+  /** Capacitance added to each branch it serves, F (one element). */
+  readonly elementF: number;
+  /** Units bought for one "count": 1 for a three-phase unit or a unit on a lone branch, 3 for single-phase units spread over three branches. */
+  readonly unitsPerCount: number;
+}
+
+export interface SetRules {
+  readonly unitCostKvar: number;
+  /** Fewest equal switched steps wanted, where outputs and the minimum step allow. */
+  readonly minSwitchedSteps: number;
+  readonly minStepKvar: number;
+  /** Controller outputs available to this set. */
+  readonly outputs: number;
+  readonly maxUnitsPerBranch: number;
+}
+
+export interface TrimBuild {
+  readonly branch: number;
+  readonly choice: UnitChoice;
+  readonly count: number;
+}
+
+export interface SetBuild {
+  readonly balanced: { readonly choice: UnitChoice; readonly count: number; readonly fixedCount: number; readonly stepCounts: readonly number[] } | null;
+  readonly trims: readonly TrimBuild[];
+  /** Design-state capacitance per branch, F. */
+  readonly designF: readonly number[];
+  readonly fixedF: readonly number[];
+  readonly tiers: readonly number[];
+  readonly units: number;
+  readonly nameplateKvar: number;
+  readonly cost: number;
+  /** Hardware rules broken (0 when none): outputs short, steps below the minimum, units per branch over the cap. */
+  readonly violations: { readonly outputs: boolean; readonly minStep: boolean; readonly unitCap: boolean };
+  /** Equal steps short of the number wanted (0 when the bank follows the load finely enough). */
+  readonly stepsShort: number;
+}
+
+/**
+ * How well a design state fits, best first:
+ * 0 target at −tol and within the bound at +tol; 1 target at nominal, within
+ * the bound at +tol; 2 target at nominal, within the bound at nominal; 3 short
+ * of the target but within the bound at +tol; 4 short of the target, within
+ * the bound at nominal; 5 past the bound; 6 short of the target where no bound
+ * is known. Staying within the bound (never leading) comes before the target.
+ */
+export function tierOf(designF: number, need: Need): number {
+  const eps = 1e-9 * Math.max(need.nominalF, need.minF, 1e-30);
+  const underMax = need.maxF === null || designF <= need.maxF + eps;
+  const underLimit = need.limitF === null || designF <= need.limitF + eps;
+  if (designF >= need.minF - eps && underMax) return 0;
+  if (designF >= need.nominalF - eps && underMax) return 1;
+  if (designF >= need.nominalF - eps && underLimit) return 2;
+  if (need.maxF !== null && underMax) return 3;
+  if (need.limitF !== null && underLimit) return 4;
+  if (need.limitF !== null) return 5;
+  return 6;
+}
+
+export const shortOfTarget = (tier: number) => tier === 3 || tier === 4 || tier === 6;
+
+/** How far a branch is from where its tier wants it, per unit (0 when it meets the target within its bound). */
+function miss(designF: number, need: Need, tier: number): number {
+  if (shortOfTarget(tier)) return need.minF > 0 ? (need.minF - designF) / need.minF : 0;
+  if (tier === 5 && need.limitF !== null) return (designF - need.limitF) / Math.max(need.limitF, need.minF, 1e-30);
+  return 0;
+}
+
+/** Unit counts that put `f` at each end of a window, for a unit adding `per` each. */
+const countsNear = (values: readonly (number | null)[], per: number): number[] =>
+  values.flatMap((f) => (f === null || f <= 0 ? [] : [Math.floor(f / per + 1e-9), Math.ceil(f / per - 1e-9)]));
+
+/**
+ * Near-equal split of `count` units into the most steps the outputs allow with
+ * every step at least `minStepKvar`; steps differ by at most one unit.
+ */
+export function splitSteps(count: number, kvarPerCount: number, outputs: number, minStepKvar: number): { steps: number[]; outputsShort: boolean; belowMin: boolean } {
+  if (count === 0) return { steps: [], outputsShort: false, belowMin: false };
+  if (outputs < 1) return { steps: [count], outputsShort: true, belowMin: count * kvarPerCount < minStepKvar - 1e-9 };
+  let best = 1;
+  for (let s = Math.min(outputs, count); s >= 1; s--)
+    if (Math.floor(count / s) * kvarPerCount >= minStepKvar - 1e-9) {
+      best = s;
+      break;
+    }
+  const base = Math.floor(count / best);
+  const extra = count - base * best;
+  const steps = Array.from({ length: best }, (_, k) => base + (k < extra ? 1 : 0));
+  return { steps, outputsShort: false, belowMin: base * kvarPerCount < minStepKvar - 1e-9 };
+}
+
+function evaluate(
+  needs: readonly Need[],
+  rules: SetRules,
+  balanced: { choice: UnitChoice; count: number } | null,
+  trims: readonly TrimBuild[],
+): SetBuild {
+  const n = needs.length;
+  const designF = needs.map(() => 0);
+  const fixedF = needs.map(() => 0);
+  const perBranchUnits = needs.map(() => 0);
+  let units = 0;
+  let nameplateKvar = 0;
+  let fixedCount = 0;
+  if (balanced) {
+    const { choice, count } = balanced;
+    for (let i = 0; i < n; i++) {
+      designF[i] = count * choice.elementF;
+      perBranchUnits[i] = count;
+    }
+    fixedCount = Math.min(count, ...needs.map((need) => Math.floor(need.fixedMaxF / choice.elementF + 1e-9)));
+    for (let i = 0; i < n; i++) fixedF[i] = fixedCount * choice.elementF;
+    units += count * choice.unitsPerCount;
+    nameplateKvar += count * choice.unitsPerCount * choice.unit.ratedKvar;
+  }
+  for (const t of trims) {
+    designF[t.branch] = designF[t.branch]! + t.count * t.choice.elementF;
+    perBranchUnits[t.branch] = perBranchUnits[t.branch]! + t.count;
+    units += t.count;
+    nameplateKvar += t.count * t.choice.unit.ratedKvar;
+  }
+  const tiers = needs.map((need, i) => tierOf(designF[i]!, need));
+  const trimOutputs = trims.length;
+  const kvarPerCount = balanced ? balanced.choice.unitsPerCount * balanced.choice.unit.ratedKvar : 0;
+  const split = splitSteps(balanced ? balanced.count - fixedCount : 0, kvarPerCount, rules.outputs - trimOutputs, rules.minStepKvar);
+  const trimBelowMin = trims.some((t) => t.count * t.choice.unit.ratedKvar < rules.minStepKvar - 1e-9);
+  const switchedKvar = balanced ? (balanced.count - fixedCount) * kvarPerCount : 0;
+  const wanted = switchedKvar > 0 ? Math.min(rules.minSwitchedSteps, rules.outputs - trimOutputs, Math.floor(switchedKvar / Math.max(rules.minStepKvar, 1e-9) + 1e-9)) : 0;
+  return {
+    stepsShort: Math.max(0, wanted - split.steps.length),
+    balanced: balanced ? { ...balanced, fixedCount, stepCounts: split.steps } : null,
+    trims,
+    designF,
+    fixedF,
+    tiers,
+    units,
+    nameplateKvar,
+    cost: nameplateKvar + rules.unitCostKvar * units,
+    violations: {
+      outputs: split.outputsShort || trimOutputs > rules.outputs,
+      minStep: split.belowMin || trimBelowMin,
+      unitCap: perBranchUnits.some((u) => u > rules.maxUnitsPerBranch),
+    },
+  };
+}
+
+/** Ranking key, compared left to right, smaller first. */
+function rankKey(build: SetBuild, needs: readonly Need[]): number[] {
+  const v = build.violations;
+  const worst = Math.max(...build.tiers);
+  const missSum = build.tiers.reduce((s, t, i) => s + miss(build.designF[i]!, needs[i]!, t), 0);
+  const steps = (build.balanced?.stepCounts.length ?? 0) + build.trims.length;
+  // Misses within half a per cent count as equal, so cost can decide between near-equal builds.
+  // Never past a bound (leading) comes before the minimum step: a step below it is a nuisance, a leading line is not.
+  const past = build.tiers.some((t) => t === 5);
+  return [Number(v.unitCap), Number(v.outputs), Number(past), Number(v.minStep), worst, Math.round(missSum * 200), build.stepsShort, build.cost, -steps];
+}
+
+const better = (a: readonly number[], b: readonly number[]) => {
+  for (let k = 0; k < a.length; k++) if (Math.abs(a[k]! - b[k]!) > 1e-9 * Math.max(1, Math.abs(b[k]!))) return a[k]! < b[k]!;
+  return false;
+};
+
+/** The best trim on one branch given the balanced capacitance already there (or none). */
+function bestTrim(branch: number, need: Need, baseF: number, choices: readonly UnitChoice[], rules: SetRules, baseUnits: number): TrimBuild | null {
+  const key = (f: number, trim: TrimBuild | null): number[] => {
+    const tier = tierOf(f, need);
+    const kvar = trim ? trim.count * trim.choice.unit.ratedKvar : 0;
+    const below = trim !== null && kvar < rules.minStepKvar - 1e-9;
+    return [Number(below), tier, Math.round(miss(f, need, tier) * 200), trim ? kvar + rules.unitCostKvar * trim.count : 0];
+  };
+  let best: TrimBuild | null = null;
+  let bestKey = key(baseF, null);
+  const room = rules.maxUnitsPerBranch - baseUnits;
+  for (const choice of choices) {
+    const rest = (f: number | null) => (f === null ? null : f - baseF);
+    const counts = new Set(countsNear([rest(need.minF), rest(need.nominalF), rest(need.maxF), rest(need.limitF)], choice.elementF).map((c) => Math.min(c, room)));
+    for (const count of counts) {
+      if (count < 1) continue;
+      const trim = { branch, choice, count };
+      const k = key(baseF + count * choice.elementF, trim);
+      if (better(k, bestKey)) {
+        best = trim;
+        bestKey = k;
+      }
+    }
+  }
+  return best;
+}
+
+/**
+ * The best build for one set: equal steps where they fit every branch,
+ * otherwise equal steps plus single-phase trims where those fit better.
+ * @param balancedChoices units for the balanced part (a lone branch: its units)
+ * @param trimChoices per branch, single-phase units for a trim step (empty: no trims)
+ */
+export function searchSet(needs: readonly Need[], balancedChoices: readonly UnitChoice[], trimChoices: readonly (readonly UnitChoice[])[], rules: SetRules): SetBuild {
+  let best: SetBuild | null = null;
+  let bestKey: number[] = [];
+  const consider = (build: SetBuild) => {
+    const k = rankKey(build, needs);
+    if (!best || better(k, bestKey)) {
+      best = build;
+      bestKey = k;
+    }
+  };
+  const balancedCounts = (choice: UnitChoice) => {
+    const edges = needs.flatMap((need) => [need.minF, need.nominalF, need.maxF, need.limitF]);
+    const near = countsNear(edges, choice.elementF);
+    // Multiples of the step counts wanted, so equal steps are within reach; and the
+    // largest build within the unit cap is always a candidate (never dropped for being over it).
+    const multiples = near.flatMap((c) => [2, 3, 4].flatMap((m) => [Math.floor(c / m) * m, Math.ceil(c / m) * m]));
+    return [...new Set([...near, ...multiples, 1].map((c) => Math.min(c, rules.maxUnitsPerBranch)))].filter((c) => c >= 1);
+  };
+  const withTrims = (balanced: { choice: UnitChoice; count: number } | null) => {
+    const baseF = balanced ? balanced.count * balanced.choice.elementF : 0;
+    const baseUnits = balanced ? balanced.count : 0;
+    const trims = needs.flatMap((need, i) => {
+      const t = trimChoices[i]?.length ? bestTrim(i, need, baseF, trimChoices[i]!, rules, baseUnits) : null;
+      return t ? [t] : [];
+    });
+    if (trims.length) consider(evaluate(needs, rules, balanced, trims));
+  };
+  // Equal steps first; trims only where no equal build fits every branch's window.
+  consider(evaluate(needs, rules, null, []));
+  for (const choice of balancedChoices) for (const count of balancedCounts(choice)) consider(evaluate(needs, rules, { choice, count }, []));
+  const equalFits = best !== null && Math.max(...(best as SetBuild).tiers) === 0 && !Object.values((best as SetBuild).violations).some(Boolean);
+  if (!equalFits && trimChoices.some((c) => c.length)) {
+    withTrims(null);
+    for (const choice of balancedChoices) for (const count of balancedCounts(choice)) withTrims({ choice, count });
+  }
+  return best!;
+}

@@ -1,0 +1,188 @@
+/**
+ * Checks a hand calculation on the real board: the capacitors the user chose
+ * are added to the board exactly as given, the textbook figures are worked out,
+ * and the difference to the solved board is split into named effects by
+ * switching them on one at a time (ideal board → board voltage → neutral
+ * return → capacitor square law → voltage-dependent loads), re-solving each time.
+ */
+import type { Board, BoardLoad, PhaseId } from '../board/boardModel.js';
+import type { ConnectionSpec } from '../board/boardSchema.js';
+import type { BoardResult } from '../analysis/boardResult.js';
+import { solveBoardModel } from '../solveBoard.js';
+import { CORRECTION_CAUTIONS } from '../correction/correctionWording.js';
+import { parseHandFigures } from './validateHandFigures.js';
+import type { HandFiguresSpec } from './handFiguresSpec.js';
+import type { Compared, EffectContribution, HandCapacitor, HandCheckResult, HandEffectId, LineCheck } from './handCheckResult.js';
+import { nominalPhaseVoltages, textbookWorking } from './textbookWorking.js';
+import { EFFECT_TITLES, effectExplanation } from './handCheckWording.js';
+
+const ZERO = { re: 0, im: 0 };
+const CONSTANT_POWER = { z: 0, i: 0, p: 1 };
+const CONSTANT_IMPEDANCE = { z: 1, i: 0, p: 0 };
+
+interface CapacitorPlan {
+  readonly spec: HandFiguresSpec['capacitors'][number];
+  readonly from: PhaseId;
+  readonly to: PhaseId | 'N';
+  readonly nominalV: number;
+  readonly handKvar: number;
+  readonly capacitanceF: number;
+}
+
+function planCapacitors(spec: HandFiguresSpec, board: Board): CapacitorPlan[] {
+  const omega = 2 * Math.PI * board.frequencyHz;
+  return spec.capacitors.map((c) => {
+    const [from, to] = c.branch.split('-') as [PhaseId, PhaseId | 'N'];
+    const nominalV = to === 'N' ? board.nominalLineToNeutralV : (board.nominalLineToLineV ?? 2 * board.nominalLineToNeutralV);
+    if (c.uF !== undefined) {
+      const capacitanceF = c.uF * 1e-6;
+      return { spec: c, from, to, nominalV, capacitanceF, handKvar: (omega * capacitanceF * nominalV * nominalV) / 1000 };
+    }
+    const ratedV = c.ratedV ?? nominalV;
+    return { spec: c, from, to, nominalV, handKvar: c.kvar!, capacitanceF: (c.kvar! * 1000) / (omega * ratedV * ratedV) };
+  });
+}
+
+/** The capacitors as added loads: holding the hand kvar (constant power) or as the real capacitance. */
+function capacitorLoads(plans: readonly CapacitorPlan[], board: Board, real: boolean): BoardLoad[] {
+  const omega = 2 * Math.PI * board.frequencyHz;
+  return plans.map((c) => ({
+    name: `hand capacitor ${c.spec.branch}`,
+    connection: c.spec.branch as ConnectionSpec,
+    model: real ? 'constant-impedance' : 'constant-power',
+    origin: 'added',
+    branches: [
+      {
+        from: c.from,
+        to: c.to,
+        vNominal: c.nominalV,
+        sNominal: { re: 0, im: real ? -omega * c.capacitanceF * c.nominalV * c.nominalV : -1000 * c.handKvar },
+        zip: real ? CONSTANT_IMPEDANCE : CONSTANT_POWER,
+      },
+    ],
+  }));
+}
+
+const asConstantPower = (loads: readonly BoardLoad[]): BoardLoad[] => loads.map((l) => ({ ...l, branches: l.branches.map((b) => ({ ...b, zip: CONSTANT_POWER })) }));
+
+interface Figures {
+  readonly currentA: ReadonlyMap<PhaseId, number>;
+  readonly pf: ReadonlyMap<PhaseId, number>;
+  readonly neutralA: number | null;
+  readonly boardPf: number;
+}
+
+const figuresOf = (r: BoardResult): Figures => ({
+  currentA: new Map(r.phases.map((p) => [p.phase, p.current.magnitude])),
+  pf: new Map(r.phases.map((p) => [p.phase, p.pf])),
+  neutralA: r.neutral && !r.board.neutralOpen ? r.neutral.current.magnitude : null,
+  boardPf: r.powerFactor.vector.pf,
+});
+
+function contribution(effect: HandEffectId, explanation: string, from: Figures, to: Figures, board: Board): EffectContribution {
+  return {
+    effect,
+    title: EFFECT_TITLES[effect],
+    explanation,
+    lines: board.phases.map((phase) => ({ phase, currentA: to.currentA.get(phase)! - from.currentA.get(phase)!, pf: to.pf.get(phase)! - from.pf.get(phase)! })),
+    neutralA: to.neutralA !== null && from.neutralA !== null ? to.neutralA - from.neutralA : null,
+    boardPf: to.boardPf - from.boardPf,
+  };
+}
+
+const compared = (yours: number | null | undefined, textbook: number, solved: number): Compared => ({ yours: yours ?? null, textbook, solved, difference: solved - textbook });
+
+/**
+ * Checks hand figures on a board.
+ * @param board a normalised board (`normaliseBoard(parseBoard(file))`)
+ * @param figures the hand figures (see `handFiguresSchema`), validated here
+ * @throws {InputError} for figures that are not valid for the board (each issue names its field path)
+ * @throws {NumericalError} if a solve fails
+ * @example
+ * const check = checkHandFigures(board, { capacitors: [{ branch: 'A-B', kvar: 10 }], expected: { pf: 0.95 } });
+ * check.effects.map((e) => e.effect) //=> ['line-pair-split', 'board-voltage', 'neutral-return', 'capacitor-voltage', 'voltage-dependent-loads']
+ */
+export function checkHandFigures(board: Board, figures: unknown): HandCheckResult {
+  const spec = parseHandFigures(figures, board);
+  const plans = planCapacitors(spec, board);
+  const targetPf = spec.targetPf ?? null;
+  const hand = textbookWorking(board, plans.map((p) => ({ branch: p.spec.branch, handKvar: p.handKvar })), targetPf);
+
+  const solve = (b: Board) => solveBoardModel({ ...b, studies: { openNeutral: false } }, { openNeutral: false });
+  const handCaps = capacitorLoads(plans, board, false);
+  const realCaps = capacitorLoads(plans, board, true);
+  const cpLoads = asConstantPower(board.loads);
+  const nominal = nominalPhaseVoltages(board);
+  const ideal: Board = { ...board, emf: board.phases.map((p) => nominal.get(p)!), sourceImpedance: ZERO, lineImpedance: ZERO, neutralImpedance: ZERO, loads: [...cpLoads, ...handCaps] };
+  const withDrop: Board = { ...board, neutralImpedance: ZERO, loads: [...cpLoads, ...handCaps] };
+  const withNeutral: Board = { ...board, loads: [...cpLoads, ...handCaps] };
+  const withCapLaw: Board = { ...board, loads: [...cpLoads, ...realCaps] };
+  const actual: Board = { ...board, loads: [...board.loads, ...realCaps] };
+  const results = [ideal, withDrop, withNeutral, withCapLaw, actual].map(solve);
+  const rNeutral = results[2]!;
+  const rActual = results[4]!;
+
+  const textbookFigures: Figures = {
+    currentA: new Map(hand.phases.map((p) => [p.phase, p.currentAfterA])),
+    pf: new Map(hand.phases.map((p) => [p.phase, p.pfAfter])),
+    neutralA: rActual.neutral && !board.neutralOpen ? hand.neutralA : null,
+    boardPf: hand.boardPf,
+  };
+
+  const added = rActual.loads.filter((l) => l.origin === 'added');
+  const capacitors: HandCapacitor[] = plans.map((p, k) => {
+    const br = added[k]!.branches[0]!;
+    return { branch: p.spec.branch, handKvar: p.handKvar, capacitanceUF: p.capacitanceF * 1e6, nominalV: p.nominalV, appliedV: br.voltage.magnitude, kvarAtAppliedV: -br.kvar };
+  });
+
+  // Numbers for the explanations.
+  const pairLoads = board.loads.flatMap((l) => l.branches).filter((b) => b.to !== 'N' && !String(b.to).startsWith('star:'));
+  const pairCapKvar = plans.filter((p) => p.to !== 'N').reduce((s, p) => s + p.handKvar, 0);
+  const volts = rActual.phases.map((p) => p.voltagePercent);
+  const hasDrop = [board.sourceImpedance, board.lineImpedance].some((z) => z.re !== 0 || z.im !== 0) || board.emf.some((e, k) => Math.abs(e.re - nominal.get(board.phases[k]!)!.re) + Math.abs(e.im - nominal.get(board.phases[k]!)!.im) > 1e-9);
+  const unbalancedSource = board.emf.some((e, k) => Math.abs(e.re - nominal.get(board.phases[k]!)!.re) + Math.abs(e.im - nominal.get(board.phases[k]!)!.im) > 1e-9);
+  const rated = board.loads.flatMap((l) => l.branches).reduce((s, b) => ({ re: s.re + b.sNominal.re, im: s.im + b.sNominal.im }), ZERO);
+  const boardLoads = rActual.loads.filter((l) => l.origin === 'board');
+  const solvedKW = boardLoads.reduce((s, l) => s + l.kW, 0);
+  const solvedKvar = boardLoads.reduce((s, l) => s + l.kvar, 0);
+  const allConstantPower = board.loads.every((l) => l.branches.every((b) => b.zip.p === 1));
+  const ratedNotes = plans
+    .filter((p) => p.spec.ratedV !== undefined && Math.abs(p.spec.ratedV - p.nominalV) > 1e-9)
+    .map((p) => effectExplanation.ratedNote(p.spec.branch, p.spec.ratedV!, p.nominalV))
+    .join('');
+  const neutralBar = rNeutral.neutral?.barVoltage?.magnitude ?? 0;
+
+  const f = [textbookFigures, ...results.map(figuresOf)] as const;
+  const effects: EffectContribution[] = [
+    contribution('line-pair-split', effectExplanation.lineSplit(pairLoads.reduce((s, b) => s + b.sNominal.re, 0) / 1000, pairLoads.reduce((s, b) => s + b.sNominal.im, 0) / 1000, pairCapKvar, board.system === 'split-phase'), f[0], f[1]!, board),
+    contribution('board-voltage', hasDrop ? effectExplanation.boardVoltage(Math.min(...volts), Math.max(...volts), unbalancedSource) : effectExplanation.noDrop, f[1]!, f[2]!, board),
+    contribution('neutral-return', board.hasNeutral && !board.neutralOpen ? effectExplanation.neutralReturn(rNeutral.neutral?.current.magnitude ?? 0, neutralBar) : effectExplanation.noNeutral, f[2]!, f[3]!, board),
+    contribution('capacitor-voltage', effectExplanation.capacitorVoltage(capacitors.reduce((s, c) => s + c.kvarAtAppliedV, 0), plans.reduce((s, p) => s + p.handKvar, 0), ratedNotes), f[3]!, f[4]!, board),
+    contribution('voltage-dependent-loads', allConstantPower ? effectExplanation.allConstantPower : effectExplanation.voltageDependentLoads(solvedKW, solvedKvar, rated.re / 1000, rated.im / 1000), f[4]!, f[5]!, board),
+  ];
+
+  const expected = spec.expected;
+  const lines: LineCheck[] = rActual.phases.map((p) => {
+    const tb = hand.phases.find((h) => h.phase === p.phase)!;
+    const mine = expected?.lines?.[p.phase];
+    return {
+      phase: p.phase,
+      currentA: compared(mine?.currentA, tb.currentAfterA, p.current.magnitude),
+      pf: compared(mine?.pf, tb.pfAfter, p.pf),
+      senseTextbook: tb.senseAfter,
+      senseSolved: p.sense,
+    };
+  });
+  const fa = figuresOf(rActual);
+  return {
+    board: { name: board.name, system: board.system, nominalLineToNeutralV: board.nominalLineToNeutralV, frequencyHz: board.frequencyHz },
+    targetPf,
+    capacitors,
+    textbook: hand.phases,
+    lines,
+    neutralA: fa.neutralA !== null && textbookFigures.neutralA !== null ? compared(expected?.neutralA, textbookFigures.neutralA, fa.neutralA) : null,
+    boardPf: compared(expected?.pf, hand.boardPf, fa.boardPf),
+    effects,
+    cautions: [...CORRECTION_CAUTIONS, ...rActual.cautions.filter((c) => !CORRECTION_CAUTIONS.includes(c))],
+  };
+}

@@ -1,0 +1,94 @@
+/**
+ * What `checkHandFigures` returns: plain JSON data. Reactive power of
+ * capacitors is given as a positive kvar (capacitive); line powers keep the
+ * load convention (Q > 0 lagging).
+ */
+import type { PhaseId } from '../board/boardModel.js';
+import type { PowerFactorSense } from '../analysis/boardResult.js';
+import type { HandBranch } from './handFiguresSpec.js';
+
+/** One capacitor as the user gave it and as the board really runs it. */
+export interface HandCapacitor {
+  readonly branch: HandBranch;
+  /** What the hand method counts on: the nameplate kvar, or ωCV² at nominal voltage for a µF figure. */
+  readonly handKvar: number;
+  readonly capacitanceUF: number;
+  /** Nominal voltage across the branch, V. */
+  readonly nominalV: number;
+  /** Solved voltage across it on the real board, V. */
+  readonly appliedV: number;
+  /** Output at that voltage, kvar. */
+  readonly kvarAtAppliedV: number;
+}
+
+/** The per-phase working of the textbook method (nominal balanced voltages, line-to-line branches split half to each line). */
+export interface TextbookPhase {
+  readonly phase: PhaseId;
+  readonly voltageV: number;
+  readonly kW: number;
+  /** Before the capacitors, + lagging. */
+  readonly kvarBefore: number;
+  /** tan φ1 = Q/P; null when P is zero. */
+  readonly tanBefore: number | null;
+  readonly pfBefore: number;
+  /** Capacitor kvar this phase is credited with (a line-pair capacitor: half to each line). */
+  readonly capacitorKvar: number;
+  /** Qc = P(tan φ1 − tan φ2) for the target, kvar; null without a target or with P ≤ 0. */
+  readonly requiredKvar: number | null;
+  readonly kvarAfter: number;
+  readonly tanAfter: number | null;
+  readonly pfAfter: number;
+  readonly senseAfter: PowerFactorSense;
+  /** Current triangle: P/V, Q/V before and after, and the hypotenuse, A. */
+  readonly activeCurrentA: number;
+  readonly reactiveCurrentBeforeA: number;
+  readonly reactiveCurrentAfterA: number;
+  readonly currentBeforeA: number;
+  readonly currentAfterA: number;
+}
+
+export interface Compared {
+  /** The user's own figure, when given. */
+  readonly yours: number | null;
+  /** What the textbook method gives. */
+  readonly textbook: number;
+  /** What the board really does (solved). */
+  readonly solved: number;
+  /** solved − textbook */
+  readonly difference: number;
+}
+
+export interface LineCheck {
+  readonly phase: PhaseId;
+  readonly currentA: Compared;
+  readonly pf: Compared;
+  readonly senseTextbook: PowerFactorSense;
+  readonly senseSolved: PowerFactorSense;
+}
+
+export type HandEffectId = 'line-pair-split' | 'board-voltage' | 'neutral-return' | 'capacitor-voltage' | 'voltage-dependent-loads';
+
+/** How much one effect moves each figure (solved with the effect − solved without it). */
+export interface EffectContribution {
+  readonly effect: HandEffectId;
+  readonly title: string;
+  /** What the effect is, with this board's numbers. */
+  readonly explanation: string;
+  readonly lines: readonly { readonly phase: PhaseId; readonly currentA: number; readonly pf: number }[];
+  readonly neutralA: number | null;
+  readonly boardPf: number;
+}
+
+export interface HandCheckResult {
+  readonly board: { readonly name: string; readonly system: string; readonly nominalLineToNeutralV: number; readonly frequencyHz: number };
+  readonly targetPf: number | null;
+  readonly capacitors: readonly HandCapacitor[];
+  readonly textbook: readonly TextbookPhase[];
+  readonly lines: readonly LineCheck[];
+  readonly neutralA: Compared | null;
+  /** Vector power factor of the board, ΣP/|ΣS| (negative when the board exports). */
+  readonly boardPf: Compared;
+  /** In the order they are switched on; their sum is solved − textbook for every figure. */
+  readonly effects: readonly EffectContribution[];
+  readonly cautions: readonly string[];
+}

@@ -1,0 +1,221 @@
+/**
+ * Newton–Raphson solve of a board from a given starting state.
+ *
+ * `solveNetwork`'s fixed-point iteration (re-solve with each load's admittance
+ * at the last voltage) only settles on states where a load's power demand does
+ * not feed back on itself. Constant-power loads in series — the line-to-neutral
+ * loads of a board whose neutral is broken or very resistive — form states it
+ * runs away from, although they satisfy the circuit equations exactly. Newton's
+ * method converges to a state near its start whatever its stability under that
+ * iteration, which is what following a state along a changing parameter needs.
+ *
+ * Unknowns are the real and imaginary parts of every live node voltage except
+ * those an ideal EMF fixes (the board's circuit, as `solveNetwork` builds it); the residual is Kirchhoff's current law at each node. The
+ * Jacobian is real (|V| in a load's admittance is not complex-differentiable).
+ */
+import { abs, add, conj, mul, scale, sub, ZERO, type ComplexValue } from '../complex.js';
+import type { Board, LoadBranch } from '../board/boardModel.js';
+import { REFERENCE, type Circuit } from './circuit.js';
+import { buildInstallationCircuit } from './installationCircuit.js';
+import { installationOf } from './installationModel.js';
+import { readInstallationSolution, type NetworkSolution } from './solveNetwork.js';
+
+export interface NewtonOptions {
+  /**
+   * Converged when the largest node-voltage update is below this fraction of the
+   * nominal line-to-neutral voltage.
+   * @defaultValue 1e-10
+   */
+  readonly tolerance?: number;
+  /** @defaultValue 40 */
+  readonly maxIterations?: number;
+  /**
+   * Per-unit branch voltage below which current and power parts of a load are
+   * held at their threshold admittance (as in `solveNetwork`).
+   * @defaultValue 0.7
+   */
+  readonly lowVoltageThreshold?: number;
+  /**
+   * Largest voltage change allowed in one update, fraction of nominal; a longer
+   * update is shortened. Keeps the search near its start.
+   * @defaultValue 0.25
+   */
+  readonly maxUpdate?: number;
+}
+
+export type NewtonOutcome =
+  | { readonly converged: true; readonly solution: NetworkSolution }
+  | { readonly converged: false; readonly iterations: number };
+
+/** Branch current and its derivatives with respect to the real and imaginary parts of the branch voltage. */
+function branchCurrent(branch: Pick<LoadBranch, 'sNominal' | 'vNominal' | 'zip'>, v: ComplexValue, threshold: number) {
+  const v0 = branch.vNominal;
+  const m = abs(v);
+  const held = m <= threshold * v0;
+  const mc = held ? threshold * v0 : m;
+  const { z, i, p } = branch.zip;
+  const f = z + (i * v0) / mc + (p * v0 * v0) / (mc * mc);
+  const df = held || m === 0 ? 0 : (-i * v0) / (m * m) - (2 * p * v0 * v0) / (m * m * m);
+  const y0 = scale(conj(branch.sNominal), 1 / (v0 * v0));
+  const admittance = scale(y0, f);
+  const current = mul(admittance, v);
+  // ∂I/∂x = Y0·(f + f'·(x/m)·V), ∂I/∂y = Y0·(j·f + f'·(y/m)·V).
+  const dx = mul(y0, add({ re: f, im: 0 }, scale(v, m === 0 ? 0 : (df * v.re) / m)));
+  const dy = mul(y0, add({ re: 0, im: f }, scale(v, m === 0 ? 0 : (df * v.im) / m)));
+  return { current, admittance, dx, dy };
+}
+
+/**
+ * Current each source delivers out of its plus terminal at the given voltages: a source
+ * behind an admittance from its own equation, an ideal one by KCL at the node it fixes
+ * (the ones fixed last hang from the earlier ones, so they are settled first).
+ */
+function sourceCurrentsAt(circuit: Circuit, voltages: readonly (ComplexValue | null)[], admittances: readonly ComplexValue[]): ComplexValue[] {
+  const at = (node: number) => (node === REFERENCE ? ZERO : (voltages[node] ?? ZERO));
+  const live = (node: number) => node === REFERENCE || voltages[node] !== null;
+  const out = new Map<number, ComplexValue>();
+  const leave = (node: number, i: ComplexValue) => out.set(node, add(out.get(node) ?? ZERO, i));
+  for (const e of circuit.elements) {
+    if (!live(e.from) || !live(e.to)) continue;
+    const i = mul(e.admittance, sub(at(e.from), at(e.to)));
+    leave(e.from, i);
+    leave(e.to, scale(i, -1));
+  }
+  circuit.branches.forEach((b, k) => {
+    if (!live(b.from) || !live(b.to)) return;
+    const i = mul(admittances[k]!, sub(at(b.from), at(b.to)));
+    leave(b.from, i);
+    leave(b.to, scale(i, -1));
+  });
+  const currents = new Array<ComplexValue>(circuit.sources.length);
+  circuit.sources.forEach((s, k) => {
+    if (!s.admittance) return;
+    const i = mul(s.admittance, sub(s.emf, sub(at(s.plus), at(s.minus))));
+    currents[k] = i;
+    leave(s.plus, scale(i, -1));
+    leave(s.minus, i);
+  });
+  for (let k = circuit.sources.length - 1; k >= 0; k--) {
+    const s = circuit.sources[k]!;
+    if (s.admittance) continue;
+    const i = out.get(s.plus) ?? ZERO;
+    currents[k] = i;
+    leave(s.minus, i);
+  }
+  return currents;
+}
+
+/**
+ * Dense real solve with partial pivoting. The system is a few dozen unknowns;
+ * the project's LU (`_internal/complexLu.ts`) is complex-only, and this Jacobian is not.
+ */
+function solveReal(a: number[][], b: number[]): number[] | null {
+  const n = b.length;
+  const scaleOf = Math.max(1e-300, ...a.map((row) => Math.max(...row.map(Math.abs))));
+  for (let c = 0; c < n; c++) {
+    let pivot = c;
+    for (let r = c + 1; r < n; r++) if (Math.abs(a[r]![c]!) > Math.abs(a[pivot]![c]!)) pivot = r;
+    if (!(Math.abs(a[pivot]![c]!) > 1e-13 * scaleOf)) return null;
+    [a[c], a[pivot]] = [a[pivot]!, a[c]!];
+    [b[c], b[pivot]] = [b[pivot]!, b[c]!];
+    for (let r = c + 1; r < n; r++) {
+      const k = a[r]![c]! / a[c]![c]!;
+      if (k === 0) continue;
+      for (let j = c; j < n; j++) a[r]![j]! -= k * a[c]![j]!;
+      b[r]! -= k * b[c]!;
+    }
+  }
+  const x = new Array<number>(n).fill(0);
+  for (let r = n - 1; r >= 0; r--) {
+    let s = b[r]!;
+    for (let j = r + 1; j < n; j++) s -= a[r]![j]! * x[j]!;
+    x[r] = s / a[r]![r]!;
+  }
+  return x.every(Number.isFinite) ? x : null;
+}
+
+/**
+ * Solves `board` by Newton's method from `start` (node voltages in the node
+ * order of the board's circuit, null for a dead node — e.g. a
+ * `NetworkSolution.nodeVoltages` of a board with the same nodes).
+ * Returns `converged: false` rather than throwing: a search that finds no state
+ * near its start is an answer for the callers (a fold, where a state ceases to exist).
+ */
+export function solveNetworkByNewton(board: Board, start: readonly (ComplexValue | null)[], options: NewtonOptions = {}): NewtonOutcome {
+  const tolerance = options.tolerance ?? 1e-10;
+  const maxIterations = options.maxIterations ?? 40;
+  const threshold = options.lowVoltageThreshold ?? 0.7;
+  const maxUpdate = options.maxUpdate ?? 0.25;
+  const { installation, boardIndex } = installationOf(board);
+  const layout = buildInstallationCircuit(installation);
+  const circuit = layout.circuit;
+  if (start.length !== circuit.nodeNames.length) throw new RangeError(`solveNetworkByNewton: the start has ${start.length} node voltages, the board's circuit ${circuit.nodeNames.length}`);
+  const vBase = board.nominalLineToNeutralV;
+  const voltages = start.map((v) => v);
+  const fixed = new Set<number>();
+  for (const src of circuit.sources) {
+    if (src.admittance) continue;
+    fixed.add(src.plus);
+    voltages[src.plus] = add(src.minus === REFERENCE ? ZERO : (voltages[src.minus] ?? ZERO), src.emf);
+  }
+  const index = new Array<number>(voltages.length).fill(-1);
+  let n = 0;
+  voltages.forEach((v, node) => {
+    if (v && !fixed.has(node)) index[node] = n++;
+  });
+  const at = (node: number) => (node === REFERENCE ? ZERO : (voltages[node] ?? ZERO));
+  const live = (node: number) => node === REFERENCE || voltages[node] !== null;
+  for (let iteration = 1; iteration <= maxIterations; iteration++) {
+    const jac = Array.from({ length: 2 * n }, () => new Array<number>(2 * n).fill(0));
+    const residual = new Array<number>(2 * n).fill(0);
+    // Current `current` leaves p and enters q; its derivatives are with respect to V(p) − V(q).
+    const stamp = (p: number, q: number, current: ComplexValue, dx: ComplexValue, dy: ComplexValue) => {
+      for (const [node, sign] of [[p, 1], [q, -1]] as const) {
+        const row = node === REFERENCE ? -1 : index[node]!;
+        if (row < 0) continue;
+        residual[2 * row]! += sign * current.re;
+        residual[2 * row + 1]! += sign * current.im;
+        for (const [other, dir] of [[p, 1], [q, -1]] as const) {
+          const col = other === REFERENCE ? -1 : index[other]!;
+          if (col < 0) continue;
+          const k = sign * dir;
+          jac[2 * row]![2 * col]! += k * dx.re;
+          jac[2 * row + 1]![2 * col]! += k * dx.im;
+          jac[2 * row]![2 * col + 1]! += k * dy.re;
+          jac[2 * row + 1]![2 * col + 1]! += k * dy.im;
+        }
+      }
+    };
+    const stampLinear = (p: number, q: number, y: ComplexValue) =>
+      stamp(p, q, mul(y, sub(at(p), at(q))), y, { re: -y.im, im: y.re });
+    for (const e of circuit.elements) if (live(e.from) && live(e.to)) stampLinear(e.from, e.to, e.admittance);
+    // A source behind an admittance draws y·(V+ − V− − E) out of its plus terminal.
+    for (const src of circuit.sources) {
+      if (!src.admittance || !live(src.plus) || !live(src.minus)) continue;
+      const y = src.admittance;
+      stamp(src.plus, src.minus, mul(y, sub(sub(at(src.plus), at(src.minus)), src.emf)), y, { re: -y.im, im: y.re });
+    }
+    for (const b of circuit.branches) {
+      if (abs(b.sNominal) === 0 || !live(b.from) || !live(b.to)) continue;
+      const { current, dx, dy } = branchCurrent(b, sub(at(b.from), at(b.to)), threshold);
+      stamp(b.from, b.to, current, dx, dy);
+    }
+    const step = solveReal(jac, residual.map((r) => -r));
+    if (!step) return { converged: false, iterations: iteration };
+    let largest = 0;
+    for (let k = 0; k < n; k++) largest = Math.max(largest, Math.hypot(step[2 * k]!, step[2 * k + 1]!) / vBase);
+    const shorten = largest > maxUpdate ? maxUpdate / largest : 1;
+    voltages.forEach((v, node) => {
+      const k = index[node]!;
+      if (v && k >= 0) voltages[node] = add(v, scale({ re: step[2 * k]!, im: step[2 * k + 1]! }, shorten));
+    });
+    if (largest <= tolerance) {
+      const admittances = circuit.branches.map((b) =>
+        abs(b.sNominal) === 0 || !live(b.from) || !live(b.to) ? ZERO : branchCurrent(b, sub(at(b.from), at(b.to)), threshold).admittance,
+      );
+      const state = { nodeVoltages: voltages, admittances, sourceCurrents: sourceCurrentsAt(circuit, voltages, admittances), iterations: iteration, lastChange: largest, lowVoltageThreshold: threshold };
+      return { converged: true, solution: { ...readInstallationSolution(installation, layout, state).boards[boardIndex]!, board } };
+    }
+  }
+  return { converged: false, iterations: maxIterations };
+}

@@ -1,0 +1,75 @@
+/**
+ * What a rebalancing study returns: plain JSON data, the same for the library
+ * and `trivar rebalance --json`. Currents in A, unbalance in %.
+ */
+import type { ConnectionSpec } from '../board/boardSchema.js';
+import type { AimWeights, ConditionFigures } from './rebalanceObjective.js';
+
+/** One line of the work order. */
+export interface CircuitMove {
+  /** Position of the circuit in the board file's `loads` list, counted from 1. */
+  readonly circuit: number;
+  readonly name: string;
+  readonly from: ConnectionSpec;
+  readonly to: ConnectionSpec;
+}
+
+export interface ConditionComparison {
+  readonly name: string;
+  readonly weight: number;
+  /** The fast scoring model (stiff balanced supply, currents at nominal voltage). */
+  readonly model: { readonly before: ConditionFigures; readonly after: ConditionFigures };
+  /** The network solver on the whole board (impedances, load models): the figures to trust. */
+  readonly solved: { readonly before: ConditionFigures; readonly after: ConditionFigures };
+}
+
+/** Best score reachable with at most `moves` moves. */
+export interface MoveTableRow {
+  readonly moves: number;
+  readonly score: number;
+  readonly lowerBound: number | null;
+  readonly proven: boolean;
+  /** Moves the best answer of this row actually uses (≤ `moves`). */
+  readonly movesUsed: number;
+  /**
+   * False when no answer found with this many moves keeps every line within its capacity
+   * (then `proven` means none exists, and `score` is that of the answer exceeding it least).
+   */
+  readonly withinCapacity: boolean;
+}
+
+export interface RebalanceReport {
+  readonly board: { readonly name: string; readonly system: string };
+  /** The weights of the built-in score, or `custom` for a caller's objective. */
+  readonly aim: AimWeights | 'custom';
+  readonly combine: 'worst' | 'weighted';
+  readonly moveLimit: number | null;
+  /** `exact`: branch-and-bound ran to the end; `local-search`: the best found, with its bound. */
+  readonly method: 'exact' | 'local-search';
+  readonly proven: boolean;
+  /** Scores in the fast model (lower is better; A for current figures, % for unbalance figures). */
+  readonly score: {
+    readonly before: number;
+    readonly after: number;
+    /** No assignment within the move limit scores below this. */
+    readonly lowerBound: number | null;
+    readonly gap: number | null;
+    readonly gapPercent: number | null;
+  };
+  /** The same score computed from the network-solved figures. */
+  readonly solvedScore: { readonly before: number; readonly after: number };
+  readonly moves: readonly CircuitMove[];
+  readonly conditions: readonly ConditionComparison[];
+  readonly moveTable: readonly MoveTableRow[] | null;
+  /** Fewest-moves mode: the % asked for and the best score it was measured from. */
+  readonly nearBest: { readonly percent: number; readonly bestScore: number } | null;
+  readonly search: {
+    readonly circuits: number;
+    readonly movable: number;
+    readonly pinned: number;
+    readonly nodes: number;
+  };
+  /** Facts about this answer worth reading (nothing to move, re-solve disagreement...). */
+  readonly notes: readonly string[];
+  readonly cautions: readonly string[];
+}

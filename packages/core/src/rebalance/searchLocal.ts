@@ -1,0 +1,251 @@
+/**
+ * Local search for large boards: from a start, move one circuit or two at once
+ * while that improves the answer, then kick a few random circuits and search
+ * again (iterated local search), keeping the best. Deterministic: a seeded
+ * generator, a fixed number of kicks. It carries no proof; the caller pairs
+ * it with a lower bound so the answer states its gap.
+ */
+import {
+  contributionOffset,
+  countMoves,
+  homeChoice,
+  limitExcess,
+  magnitudesOf,
+  type AssignmentProblem,
+  type ScoredChoice,
+} from './assignmentProblem.js';
+import { seededRandom } from './seededRandom.js';
+
+export interface LocalSearchOptions {
+  readonly moveLimit: number;
+  /** Kicks after the first local optimum. */
+  readonly kicks: number;
+  readonly seed: number;
+  readonly tie: number;
+}
+
+/** A working assignment with its running sums, so one change costs O(Q). */
+class Walker {
+  readonly choice: Int32Array;
+  readonly sums: Float64Array;
+  moves: number;
+  score = 0;
+  excess = 0;
+  private readonly trial: Float64Array;
+  private readonly mags: Float64Array;
+
+  constructor(
+    readonly p: AssignmentProblem,
+    start: Int32Array,
+    readonly tie: number,
+  ) {
+    this.choice = Int32Array.from(start);
+    this.sums = new Float64Array(2 * p.quantityCount);
+    this.trial = new Float64Array(2 * p.quantityCount);
+    this.mags = new Float64Array(p.quantityCount);
+    this.sums.set(p.base);
+    for (let i = 0; i < p.circuitCount; i++) this.add(this.sums, i, this.choice[i]!, 1);
+    this.moves = countMoves(p, this.choice);
+    this.rescore();
+  }
+
+  private add(target: Float64Array, i: number, k: number, sign: number): void {
+    const at = contributionOffset(this.p, i, k);
+    for (let j = 0; j < target.length; j++) target[j]! += sign * this.p.contributions[at + j]!;
+  }
+
+  private rescore(): void {
+    magnitudesOf(this.sums, this.mags);
+    this.score = this.p.score(this.mags);
+    this.excess = limitExcess(this.p, this.mags);
+  }
+
+  /** True when (score, excess, moves) beats the walker's present state. */
+  private beats(score: number, excess: number, moves: number): boolean {
+    const ok = excess <= this.tie;
+    const nowOk = this.excess <= this.tie;
+    if (ok !== nowOk) return ok;
+    if (!ok) return excess < this.excess - this.tie;
+    if (score < this.score - this.tie) return true;
+    return score <= this.score + this.tie && moves < this.moves;
+  }
+
+  moveDelta(i: number, k: number): number {
+    const h = this.p.home[i]!;
+    return (k === h ? 0 : 1) - (this.choice[i] === h ? 0 : 1);
+  }
+
+  /** Tries changing circuits (i → ki) and optionally (j → kj); applies the change when it improves. */
+  tryChange(i: number, ki: number, j: number, kj: number, moveLimit: number): boolean {
+    const moves = this.moves + this.moveDelta(i, ki) + (j >= 0 ? this.moveDelta(j, kj) : 0);
+    if (moves > moveLimit) return false;
+    const p = this.p;
+    const c = p.contributions;
+    const q2 = this.sums.length;
+    const out = contributionOffset(p, i, this.choice[i]!);
+    const into = contributionOffset(p, i, ki);
+    const t = this.trial;
+    for (let x = 0; x < q2; x++) t[x] = this.sums[x]! - c[out + x]! + c[into + x]!;
+    if (j >= 0) {
+      const out2 = contributionOffset(p, j, this.choice[j]!);
+      const into2 = contributionOffset(p, j, kj);
+      for (let x = 0; x < q2; x++) t[x]! += c[into2 + x]! - c[out2 + x]!;
+    }
+    magnitudesOf(t, this.mags);
+    const score = p.score(this.mags);
+    const excess = limitExcess(p, this.mags);
+    if (!this.beats(score, excess, moves)) return false;
+    this.sums.set(t);
+    this.choice[i] = ki;
+    if (j >= 0) this.choice[j] = kj;
+    this.moves = moves;
+    this.score = score;
+    this.excess = excess;
+    return true;
+  }
+
+  /** Sets a circuit without asking whether it helps (kicks, trimming). */
+  force(i: number, k: number): void {
+    this.moves += this.moveDelta(i, k);
+    this.add(this.sums, i, this.choice[i]!, -1);
+    this.add(this.sums, i, k, 1);
+    this.choice[i] = k;
+    this.rescore();
+  }
+
+  snapshot(): ScoredChoice {
+    return { choice: Int32Array.from(this.choice), score: this.score, excess: this.excess, moves: this.moves };
+  }
+}
+
+/** One circuit at a time, while any change improves. */
+function descendSingles(w: Walker, moveLimit: number): void {
+  const p = w.p;
+  for (let improved = true; improved; ) {
+    improved = false;
+    for (let i = 0; i < p.circuitCount; i++)
+      for (let k = 0; k < p.optionCounts[i]!; k++) if (k !== w.choice[i] && w.tryChange(i, k, -1, 0, moveLimit)) improved = true;
+  }
+}
+
+/** Singles, then two circuits at once (the O(n²) part: run on promising answers only). */
+function descend(w: Walker, moveLimit: number): void {
+  const p = w.p;
+  const n = p.circuitCount;
+  for (;;) {
+    descendSingles(w, moveLimit);
+    let improved = false;
+    for (let i = 0; i < n; i++)
+      for (let j = i + 1; j < n; j++)
+        for (let ki = 0; ki < p.optionCounts[i]!; ki++) {
+          if (ki === w.choice[i]) continue;
+          for (let kj = 0; kj < p.optionCounts[j]!; kj++) {
+            if (kj === w.choice[j]) continue;
+            if (w.tryChange(i, ki, j, kj, moveLimit)) improved = true;
+          }
+        }
+    if (!improved) return;
+  }
+}
+
+/** Largest circuits first, each to the option that scores best with those already placed. */
+export function greedyChoice(p: AssignmentProblem): Int32Array {
+  const q2 = 2 * p.quantityCount;
+  const size = (i: number) => {
+    const at = contributionOffset(p, i, 0);
+    let s = 0;
+    for (let j = 0; j < q2; j++) s += p.contributions[at + j]! ** 2;
+    return s;
+  };
+  const order = Array.from({ length: p.circuitCount }, (_, i) => i).sort((a, b) => size(b) - size(a) || a - b);
+  const sums = Float64Array.from(p.base);
+  const trial = new Float64Array(q2);
+  const mags = new Float64Array(p.quantityCount);
+  const choice = homeChoice(p);
+  // Circuits not yet placed are left out of the sums.
+  for (const i of order) {
+    let bestK = choice[i]!;
+    let best = Infinity;
+    for (let k = 0; k < p.optionCounts[i]!; k++) {
+      const at = contributionOffset(p, i, k);
+      for (let j = 0; j < q2; j++) trial[j] = sums[j]! + p.contributions[at + j]!;
+      const s = p.score(magnitudesOf(trial, mags)) + limitExcess(p, mags);
+      if (s < best) {
+        best = s;
+        bestK = k;
+      }
+    }
+    choice[i] = bestK;
+    const at = contributionOffset(p, i, bestK);
+    for (let j = 0; j < q2; j++) sums[j]! += p.contributions[at + j]!;
+  }
+  return choice;
+}
+
+/** Undoes moves, least useful first, until at most `moveLimit` remain. */
+export function trimMoves(p: AssignmentProblem, start: Int32Array, moveLimit: number, tie: number): Int32Array {
+  const w = new Walker(p, start, tie);
+  while (w.moves > moveLimit) {
+    let bestI = -1;
+    let bestScore = Infinity;
+    for (let i = 0; i < p.circuitCount; i++) {
+      const h = p.home[i]!;
+      if (h < 0 || w.choice[i] === h) continue;
+      const was = w.choice[i]!;
+      w.force(i, h);
+      const s = w.score + w.excess;
+      if (s < bestScore) {
+        bestScore = s;
+        bestI = i;
+      }
+      w.force(i, was);
+    }
+    if (bestI < 0) break;
+    w.force(bestI, p.home[bestI]!);
+  }
+  return Int32Array.from(w.choice);
+}
+
+/** Relative distance from the best within which a kicked answer gets the two-circuit descent. */
+const NEAR_BEST = 0.002;
+
+/** Best answer found from each start, with kicks. */
+export function searchLocal(p: AssignmentProblem, starts: readonly Int32Array[], options: LocalSearchOptions): ScoredChoice {
+  const random = seededRandom(options.seed);
+  const { moveLimit, tie } = options;
+  let best: ScoredChoice | null = null;
+  const better = (a: ScoredChoice, b: ScoredChoice | null): boolean => {
+    if (!b) return true;
+    const aOk = a.excess <= tie;
+    const bOk = b.excess <= tie;
+    if (aOk !== bOk) return aOk;
+    if (!aOk) return a.excess < b.excess - tie;
+    return a.score < b.score - tie || (a.score <= b.score + tie && a.moves < b.moves);
+  };
+  const movable = [...Array(p.circuitCount).keys()].filter((i) => p.optionCounts[i]! > 1);
+  for (const start of starts) {
+    const w = new Walker(p, start, tie);
+    descend(w, moveLimit);
+    const found = w.snapshot();
+    if (better(found, best)) best = found;
+  }
+  // Kicks from the best local optimum: shake a few circuits, descend one circuit at a time,
+  // and give the (costlier) two-at-once descent to answers within NEAR_BEST of the best: on
+  // random boards of 42 and 84 circuits that halved the mean gap to the bound against descending
+  // only answers that already beat the best, for about 1.5x the time.
+  const w = new Walker(p, best!.choice, tie);
+  for (let kick = 0; kick < options.kicks && movable.length > 0; kick++) {
+    const size = 2 + Math.floor(random() * 3);
+    for (let t = 0; t < size; t++) {
+      const i = movable[Math.floor(random() * movable.length)]!;
+      const k = Math.floor(random() * p.optionCounts[i]!);
+      if (w.moves + w.moveDelta(i, k) <= moveLimit) w.force(i, k);
+    }
+    descendSingles(w, moveLimit);
+    if (w.excess <= tie && w.score <= best!.score * (1 + NEAR_BEST)) descend(w, moveLimit);
+    const found = w.snapshot();
+    if (better(found, best)) best = found;
+    else for (let i = 0; i < p.circuitCount; i++) if (w.choice[i] !== best!.choice[i]) w.force(i, best!.choice[i]!);
+  }
+  return best!;
+}

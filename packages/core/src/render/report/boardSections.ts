@@ -1,0 +1,199 @@
+/** Report sections about the board itself: description, panel schedule, solved results, lost neutral. */
+import type { BoardSpec, ImpedanceSpec } from '../../board/boardSchema.js';
+import { describeConductor, isPerPhaseLine } from '../../board/feederModel.js';
+
+/** A source impedance as entered: one for all phases, or one per phase. */
+function impedanceWords(z: NonNullable<BoardSpec['supply']['impedance']>): string {
+  if ('r' in z) return `${z.r} + j${z.x} Ω`;
+  return (['A', 'B', 'C'] as const)
+    .filter((p) => z[p])
+    .map((p) => `${p} ${(z[p] as ImpedanceSpec).r} + j${(z[p] as ImpedanceSpec).x} Ω`)
+    .join(', ');
+}
+import type { BoardResult, LoadReading } from '../../analysis/boardResult.js';
+import { fixed } from '../svgText.js';
+import { renderPhasorDiagram } from '../renderPhasorDiagram.js';
+import { renderSequenceDiagram } from '../renderSequenceDiagram.js';
+import type { ReportBlock, ReportSection } from './reportDocument.js';
+
+const SYSTEM_WORDS: Readonly<Record<string, string>> = {
+  'three-phase-4wire': 'three-phase 4-wire (lines and neutral)',
+  'three-phase-3wire': 'three-phase 3-wire (no neutral)',
+  'split-phase': 'split-phase (two lines and neutral)',
+  'single-phase': 'single-phase 2-wire',
+};
+
+const pfWords = (pf: number, sense: string): string => `${fixed(pf, 3)}${sense === 'unity' ? '' : sense === 'lagging' ? ' lag' : ' lead'}`;
+const orDash = (x: number | null | undefined, digits: number): string => (x === null || x === undefined ? '—' : fixed(x, digits));
+
+function conductorWords(line: NonNullable<BoardSpec['feeder']>['line'], feeder?: BoardSpec['feeder']): string {
+  if (!line) return 'none entered (zero impedance)';
+  if (isPerPhaseLine(line)) return (['A', 'B', 'C'] as const).filter((p) => line[p]).map((p) => `${p}: ${conductorWords(line[p], feeder)}`).join('; ');
+  const c = line;
+  const library = describeConductor(c, feeder);
+  if (library) return `${library}${c.ratingA !== undefined ? `, rated ${c.ratingA} A` : ''}`;
+  const parts: string[] = [];
+  if (c.lengthM !== undefined) parts.push(`${c.lengthM} m at ${c.rOhmPerKm ?? 0} + j${c.xOhmPerKm ?? 0} Ω/km`);
+  if (c.r !== undefined || c.x !== undefined) parts.push(`${c.r ?? 0} + j${c.x ?? 0} Ω`);
+  if (c.ratingA !== undefined) parts.push(`rated ${c.ratingA} A`);
+  return parts.join(', ') || 'zero impedance';
+}
+
+export function installationSection(spec: BoardSpec, result: BoardResult): ReportSection {
+  const b = result.board;
+  const s = spec.supply;
+  const base = s.transformer
+    ? `transformer ${s.transformer.kVA} kVA, impedance ${s.transformer.impedancePercent} %, X/R ${s.transformer.xOverR}${s.impedance ? `, plus ${impedanceWords(s.impedance)}` : ''}`
+    : s.impedance
+      ? `${impedanceWords(s.impedance)}${'r' in s.impedance ? ' per phase' : ''}`
+      : s.bank
+        ? 'a bank of single-phase units, one per phase'
+        : s.openDelta
+          ? `an open delta of two single-phase units (${Object.keys(s.openDelta).join(' and ')})`
+          : 'ideal (zero source impedance)';
+  const source = s.zeroSequence ? `${base}; zero-sequence ${s.zeroSequence.r} + j${s.zeroSequence.x} Ω` : base;
+  const items: [string, string][] = [
+    ['Board', b.name],
+    ['System', SYSTEM_WORDS[b.system] ?? b.system],
+    ['Nominal voltage', `${b.nominalLineToLineV !== null ? `${fixed(b.nominalLineToLineV, 0)} V line-to-line, ` : ''}${fixed(b.nominalLineToNeutralV, 1)} V line-to-neutral`],
+    ['Frequency and sequence', `${b.frequencyHz} Hz, ${b.sequence}`],
+    ['Source', source],
+    ['Source voltages', s.emf ? 'unbalanced, as entered per phase' : 'balanced at nominal voltage'],
+    ['Feeder, each line', conductorWords(spec.feeder?.line, spec.feeder)],
+  ];
+  if (result.neutral !== null) items.push(['Feeder, neutral', conductorWords(spec.feeder?.neutral, spec.feeder)]);
+  if (b.neutralOpen) items.push(['Neutral', 'entered as broken (what-if)']);
+  items.push(['Circuits', `${spec.loads.length}`]);
+  const blocks: ReportBlock[] = [{ kind: 'facts', items }];
+  if (spec.note) blocks.push({ kind: 'paragraph', text: spec.note });
+  return { id: 'installation', title: 'Board and supply', blocks };
+}
+
+const worstBranch = (l: LoadReading) => l.branches.reduce((w, br) => (br.voltagePercent < w.voltagePercent ? br : w), l.branches[0]!);
+
+export function scheduleSection(spec: BoardSpec, result: BoardResult): ReportSection {
+  const boardLoads = result.loads.filter((l) => l.origin === 'board');
+  const rows = boardLoads.map((l, k) => {
+    const entered = spec.loads[k];
+    const worst = worstBranch(l);
+    return [
+      entered?.circuit ?? String(k + 1),
+      l.name,
+      l.connection,
+      entered?.breakerA !== undefined ? fixed(entered.breakerA, 0) : '—',
+      l.model,
+      fixed(l.kW, 2),
+      fixed(l.kvar, 2),
+      fixed(l.currentA, 1),
+      pfWords(l.pf, l.sense),
+      worst ? fixed(worst.voltagePercent, 1) : '—',
+    ];
+  });
+  return {
+    id: 'schedule',
+    title: 'Panel schedule',
+    blocks: [
+      {
+        kind: 'table',
+        caption: 'Circuits as solved (kW, kvar and current at the voltage each circuit really gets)',
+        columns: [
+          { label: 'No.' },
+          { label: 'Circuit' },
+          { label: 'Phase' },
+          { label: 'Breaker A', align: 'right' },
+          { label: 'Model' },
+          { label: 'kW', align: 'right' },
+          { label: 'kvar', align: 'right' },
+          { label: 'A', align: 'right' },
+          { label: 'PF', align: 'right' },
+          { label: 'V %nom', align: 'right' },
+        ],
+        rows,
+        note: 'A: largest current the circuit draws from one line. V %nom: the lowest voltage across any part of the circuit, % of its nominal voltage.',
+      },
+    ],
+  };
+}
+
+export function resultsSection(result: BoardResult): ReportSection {
+  const blocks: ReportBlock[] = [];
+  const rows = result.phases.map((p) => [
+    p.phase,
+    fixed(p.voltage.magnitude, 1),
+    fixed(p.voltage.angleDeg, 1),
+    fixed(p.voltagePercent, 1),
+    fixed(p.current.magnitude, 1),
+    fixed(p.current.angleDeg, 1),
+    fixed(p.kW, 2),
+    fixed(p.kvar, 2),
+    pfWords(p.pf, p.sense),
+    orDash(p.loadingPercent, 0),
+  ]);
+  if (result.neutral) {
+    const n = result.neutral;
+    rows.push(['N', n.barVoltage ? fixed(n.barVoltage.magnitude, 1) : '—', n.barVoltage ? fixed(n.barVoltage.angleDeg, 1) : '—', '', fixed(n.current.magnitude, 1), fixed(n.current.angleDeg, 1), '', '', '', orDash(n.loadingPercent, 0)]);
+  }
+  blocks.push({
+    kind: 'table',
+    caption: 'Voltages and currents at the board',
+    columns: [
+      { label: 'Line' },
+      { label: 'V', align: 'right' },
+      { label: '∠V °', align: 'right' },
+      { label: '%nom', align: 'right' },
+      { label: 'A', align: 'right' },
+      { label: '∠I °', align: 'right' },
+      { label: 'kW', align: 'right' },
+      { label: 'kvar', align: 'right' },
+      { label: 'PF', align: 'right' },
+      { label: '% rating', align: 'right' },
+    ],
+    rows,
+    note: `${result.neutral ? 'Phase voltages to the neutral bar; the N row gives the neutral bar voltage to the source star point and the neutral current.' : 'Phase voltages to the centroid of the line voltages (no neutral).'} Line-to-line: ${result.lineToLine.map((l) => `${l.pair} ${fixed(l.voltage.magnitude, 1)} V`).join(', ')}.`,
+  });
+  blocks.push({ kind: 'figure', name: 'phasors', caption: 'Phasor diagram of the board as solved', svg: renderPhasorDiagram(result) });
+  const pf = result.powerFactor;
+  const facts: [string, string][] = [
+    ['Loads', `${fixed(result.totals.kW, 2)} kW, ${fixed(result.totals.kvar, 2)} kvar`],
+    ['Losses in source and feeder', `${fixed(result.losses.totalKW, 3)} kW`],
+    ['From the source', `${fixed(result.source.kW, 2)} kW, ${fixed(result.source.kvar, 2)} kvar`],
+    ['Power factor, vector |ΣS|', `${fixed(pf.vector.pf, 3)} (${fixed(pf.vector.kVA, 2)} kVA)`],
+    ['Power factor, arithmetic Σ|V||I|', `${fixed(pf.arithmetic.pf, 3)} (${fixed(pf.arithmetic.kVA, 2)} kVA)`],
+  ];
+  if (pf.effective) facts.push(['Power factor, effective (IEEE 1459)', `${fixed(pf.effective.pf, 3)} (${fixed(pf.effective.kVA, 2)} kVA)`]);
+  if (pf.positiveSequence) facts.push(['Power factor, positive sequence', `${fixed(pf.positiveSequence.pf, 3)}`]);
+  const u = result.unbalance;
+  if (u) {
+    facts.push(['Voltage unbalance factor |V2|/|V1| (IEC)', `${fixed(u.voltageFactorPercent, 2)} %`]);
+    facts.push(['Line-voltage unbalance rate (NEMA MG 1)', `${fixed(u.lineVoltageRatePercent, 2)} %`]);
+    facts.push(['Current |I2|/|I1|, |I0|/|I1|', `${fixed(u.currentNegativePercent, 1)} %, ${fixed(u.currentZeroPercent, 1)} %`]);
+    facts.push(['Three-phase motor derating (NEMA MG 1)', u.motorDeratingFactor === null ? 'operation not recommended (above 5 %)' : `× ${fixed(u.motorDeratingFactor, 2)}`]);
+  }
+  blocks.push({ kind: 'facts', items: facts });
+  if (result.sequences) blocks.push({ kind: 'figure', name: 'sequences', caption: 'Symmetrical components of the voltages and line currents', svg: renderSequenceDiagram(result) });
+  blocks.push(
+    result.warnings.length
+      ? { kind: 'list', tone: 'warning', items: result.warnings.map((w) => w.message) }
+      : { kind: 'paragraph', text: 'No warnings: every figure is within the thresholds trivar checks.' },
+  );
+  return { id: 'results', title: 'Results', blocks };
+}
+
+export function openNeutralSection(result: BoardResult): ReportSection | null {
+  const on = result.openNeutral;
+  if (!on || !on.applicable) return null;
+  return {
+    id: 'open-neutral',
+    title: 'If the neutral conductor broke',
+    blocks: [
+      { kind: 'paragraph', text: `The neutral bar would float to ${fixed(on.barVoltage?.magnitude ?? 0, 1)} V from the source star point.` },
+      {
+        kind: 'table',
+        caption: 'Voltage each line-to-neutral circuit would see',
+        columns: [{ label: 'Circuit' }, { label: 'Phase' }, { label: 'V', align: 'right' }, { label: '%nom', align: 'right' }, { label: 'Verdict' }],
+        rows: on.loads.map((l) => [l.name, l.phase, fixed(l.voltage, 1), fixed(l.voltagePercent, 1), l.flag === 'over' ? 'overvoltage' : l.flag === 'under' ? 'undervoltage' : 'within limits']),
+      },
+      { kind: 'list', tone: 'caution', items: on.cautions },
+    ],
+  };
+}

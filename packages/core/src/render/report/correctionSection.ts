@@ -1,0 +1,129 @@
+/**
+ * Report sections from a correction study: the recommendation (equipment,
+ * before/after, diagrams) and the resonance check it implies. Reads only the
+ * study's plain result, so the study can grow without touching the report.
+ */
+import type { CorrectionReport } from '../../correction/correctionResult.js';
+import { fixed } from '../svgText.js';
+import { renderPhasorDiagram } from '../renderPhasorDiagram.js';
+import { renderCurrentTriangles } from '../renderCurrentTriangles.js';
+import type { ReportBlock, ReportSection } from './reportDocument.js';
+import { CHARACTERISTIC_ORDERS, RESONANCE_NEAR_FRACTION } from './reportWording.js';
+
+const ARRANGEMENT_WORDS: Readonly<Record<string, string>> = {
+  'star-bank': 'capacitor bank in star',
+  'delta-bank': 'capacitor bank in delta',
+  'balancing-compensator': 'balancing compensator (delta and star branches)',
+};
+
+function equipmentTable(report: CorrectionReport): ReportBlock | null {
+  const sel = report.selection;
+  if (!sel) return null;
+  return {
+    kind: 'table',
+    caption: `Equipment to install (${sel.units} units, ${fixed(sel.deliveredKvar, 1)} kvar delivered, ${fixed(sel.nameplateKvar, 1)} kvar nameplate; ${sel.catalogueNote})`,
+    columns: [
+      { label: 'Step' },
+      { label: 'Branches' },
+      { label: 'Unit' },
+      { label: 'Units', align: 'right' },
+      { label: 'kvar nameplate', align: 'right' },
+      { label: 'kvar delivered', align: 'right' },
+      { label: 'µF per branch', align: 'right' },
+      { label: 'C/k A', align: 'right' },
+    ],
+    rows: sel.steps.map((s) => [
+      s.output === null ? 'fixed' : String(s.output),
+      s.branches.join(' '),
+      `${s.unit.name} (${fixed(s.unit.ratedKvar, 1)} kvar ${fixed(s.unit.ratedV, 0)} V)`,
+      String(s.units),
+      fixed(s.nameplateKvar, 1),
+      fixed(s.deliveredKvar, 2),
+      fixed(s.capacitancePerBranchUF, 0),
+      s.output === null ? '—' : fixed(s.responseThresholdA, 3),
+    ]),
+    note: `Capacitance tolerance −${sel.capacitanceTolerance.minusPercent} % / +${sel.capacitanceTolerance.plusPercent} %; units rated ${sel.voltageMarginPercent} % above the nominal voltage (${sel.catalogueTitle}).`,
+  };
+}
+
+export function correctionSection(report: CorrectionReport): ReportSection {
+  const v = report.verification;
+  const blocks: ReportBlock[] = [
+    { kind: 'paragraph', text: report.summary },
+    {
+      kind: 'facts',
+      items: [
+        ['Arrangement', ARRANGEMENT_WORDS[report.arrangement] ?? report.arrangement],
+        ['Outcome', report.status.replace(/-/g, ' ')],
+        ['Power factor, vector', `${fixed(v.powerFactor.vector.before, 3)} → ${fixed(v.powerFactor.vector.after, 3)}`],
+        ...(v.powerFactor.effective ? ([['Power factor, effective (IEEE 1459)', `${fixed(v.powerFactor.effective.before, 3)} → ${fixed(v.powerFactor.effective.after, 3)}`]] as [string, string][]) : []),
+        ...(v.neutralCurrentA ? ([['Neutral current', `${fixed(v.neutralCurrentA.before, 1)} → ${fixed(v.neutralCurrentA.after, 1)} A`]] as [string, string][]) : []),
+        ['Apparent power released at the source', `${fixed(v.releasedKVA.source, 2)} kVA`],
+        ['Loss reduction in source and feeder', `${fixed(v.lossReductionKW, 3)} kW`],
+        ['Voltage rise from the capacitors', `${fixed(v.voltageRise.solvedPercent, 2)} % (limit ${fixed(v.voltageRise.limitPercent, 1)} %)`],
+      ],
+    },
+  ];
+  if (report.reasons.length) blocks.push({ kind: 'list', tone: 'warning', items: report.reasons });
+  const equipment = equipmentTable(report);
+  if (equipment) blocks.push(equipment);
+  blocks.push({
+    kind: 'table',
+    caption: 'Each line before and after',
+    columns: [
+      { label: 'Line' },
+      { label: 'A before', align: 'right' },
+      { label: 'A after', align: 'right' },
+      { label: 'Active A', align: 'right' },
+      { label: 'Reactive A', align: 'right' },
+      { label: 'PF before', align: 'right' },
+      { label: 'PF after', align: 'right' },
+    ],
+    rows: v.lines.map((l) => [
+      l.phase,
+      fixed(l.currentA.before, 1),
+      fixed(l.currentA.after, 1),
+      `${fixed(l.activeCurrentA.before, 1)} → ${fixed(l.activeCurrentA.after, 1)}`,
+      `${fixed(l.reactiveCurrentA.before, 1)} → ${fixed(l.reactiveCurrentA.after, 1)}`,
+      `${fixed(l.pf.before, 3)} ${l.sense.before === 'leading' ? 'lead' : l.sense.before === 'lagging' ? 'lag' : ''}`.trim(),
+      `${fixed(l.pf.after, 3)} ${l.sense.after === 'leading' ? 'lead' : l.sense.after === 'lagging' ? 'lag' : ''}`.trim(),
+    ]),
+    note: 'Active and reactive parts of each line current, along and across its own line-to-neutral voltage (reactive above zero is lagging).',
+  });
+  blocks.push({ kind: 'figure', name: 'correction-phasors', caption: 'Phasors before (dashed) and after (solid) the correction', svg: renderPhasorDiagram(v.before, { after: v.after }) });
+  blocks.push({ kind: 'figure', name: 'correction-triangles', caption: 'How the equipment changes each line current', svg: renderCurrentTriangles(v.before, v.after) });
+  if (v.lightLoad) {
+    blocks.push({
+      kind: 'paragraph',
+      text: `At ${fixed(100 * v.lightLoad.fraction, 0)} % load with only the fixed part (${fixed(v.lightLoad.fixedKvar, 2)} kvar) connected: ${v.lightLoad.ok ? 'no line leads' : `line(s) ${v.lightLoad.leadingLines.join(', ')} lead`}.`,
+    });
+  }
+  if (v.warnings.length || report.warnings.length) blocks.push({ kind: 'list', tone: 'warning', items: [...new Set([...report.warnings, ...v.warnings].map((w) => w.message))] });
+  return { id: 'correction', title: 'Correction recommendation', blocks };
+}
+
+/** The resonance of the recommended capacitors with the supply, when the study could estimate it. */
+export function resonanceSection(report: CorrectionReport): ReportSection | null {
+  const h = report.verification.resonanceOrder;
+  if (h === null) return null;
+  const f = h * report.verification.before.board.frequencyHz;
+  const near = CHARACTERISTIC_ORDERS.filter((n) => Math.abs(h - n) <= RESONANCE_NEAR_FRACTION * n);
+  const sc = report.verification.voltageRise.shortCircuitKVA;
+  return {
+    id: 'harmonics',
+    title: 'Harmonics and resonance',
+    blocks: [
+      {
+        kind: 'facts',
+        items: [
+          ['Short-circuit power at the board', sc === null ? '—' : `${fixed(sc, 0)} kVA`],
+          ['Capacitive output considered', `${fixed(report.verification.voltageRise.capacitorKvar, 1)} kvar`],
+          ['Parallel resonance with the supply, h = √(Ssc/Qc)', `order ${fixed(h, 2)} (${fixed(f, 0)} Hz)`],
+        ],
+      },
+      near.length
+        ? { kind: 'list', tone: 'warning', items: [`The resonance lies within ${fixed(100 * RESONANCE_NEAR_FRACTION, 0)} % of harmonic order ${near.join(', ')}, which common non-linear loads produce: a harmonic study and detuning reactors are strongly advised.`] }
+        : { kind: 'paragraph', text: `The resonance is not within ${fixed(100 * RESONANCE_NEAR_FRACTION, 0)} % of orders ${CHARACTERISTIC_ORDERS.join(', ')}. This is an estimate from the short-circuit power only; it does not replace a harmonic study of the board.` },
+    ],
+  };
+}

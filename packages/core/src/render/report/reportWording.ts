@@ -1,0 +1,43 @@
+/** Fixed wording of reports: assumptions and the standards and methods referred to. */
+
+export const MODEL_ASSUMPTIONS: readonly string[] = [
+  'Steady state at the fundamental frequency: voltages and currents are sinusoidal phasors (rms values).',
+  'Every circuit is modelled as entered: its rating at nominal voltage and its voltage dependence (constant power, current, impedance or a ZIP mix); a constant-power or constant-current load below 0.7 of its nominal voltage is held at the impedance it has there.',
+  'The source is three (or two) EMFs behind the source impedance; a transformer rating gives that impedance referred to the board voltage. Feeder conductors are series impedances; mutual coupling between conductors and conductor temperature are not modelled.',
+  'Line currents flow from the source into the board and the neutral current back to the source, so the three line currents add up to the neutral current. Phase angles are referred to the phase-A source voltage.',
+  'Powers follow the load convention: kW above zero is consumed, kvar above zero is lagging (inductive).',
+];
+
+export const CORRECTION_ASSUMPTIONS: readonly string[] = [
+  'A capacitor gives Q = Qr·(V/Vr)²·(f/fr) at its applied voltage V and frequency f; capacitor banks are re-solved with the board, so their effect on every voltage and load is included.',
+  'Units are chosen from the catalogue in the board file or, without one, from typical ratings (not a vendor catalogue); capacitance tolerance and the light-load state are checked by solving again.',
+];
+
+export interface StandardReference {
+  readonly name: string;
+  readonly use: string;
+}
+
+export const BOARD_STANDARDS: readonly StandardReference[] = [
+  { name: 'IEEE Std 1459-2010', use: 'effective apparent power and power factor under unbalance; arithmetic and vector apparent power' },
+  { name: 'C. L. Fortescue (1918), symmetrical components', use: 'zero-, positive- and negative-sequence voltages and currents' },
+  { name: 'IEC 61000-4-30 / IEC 61000-2-2', use: 'voltage unbalance factor |V2|/|V1|' },
+  { name: 'NEMA MG 1', use: 'line-voltage unbalance rate and the derating of three-phase motors' },
+  { name: 'IEEE phase-voltage unbalance rate (P. Pillay, M. Manyage, "Definitions of voltage unbalance")', use: 'unbalance of the line-to-neutral voltages' },
+];
+
+export const CORRECTION_STANDARDS: readonly StandardReference[] = [
+  { name: 'IEC 60831-1', use: 'low-voltage shunt capacitors: capacitance tolerance, permitted voltage and current, discharge' },
+  { name: 'IEEE Std 18', use: 'shunt power capacitors: continuous voltage, current and kvar limits' },
+  { name: 'IEEE Std 1036', use: 'application of shunt capacitors: voltage rise ΔV/V ≈ Qc/Ssc and parallel resonance order h = √(Ssc/Qc)' },
+  { name: 'NEC Article 460', use: 'capacitor installations: discharge and conductor sizing (where the NEC applies)' },
+  { name: 'Steinmetz / Gyugyi balancing compensator', use: 'delta and star reactive branches that balance an unbalanced load' },
+];
+
+/** Harmonic orders that common six-pulse loads produce, where a resonance is worth a caution. */
+export const CHARACTERISTIC_ORDERS: readonly number[] = [3, 5, 7, 11, 13];
+/**
+ * A resonance within this fraction of a characteristic order is flagged (common practice, no source:
+ * detuned banks are placed well below the 5th, e.g. at 4.3 or 3.8).
+ */
+export const RESONANCE_NEAR_FRACTION = 0.1;

@@ -1,0 +1,37 @@
+/**
+ * Small helpers for writing SVG and HTML as text: escaping and number
+ * formatting that gives the same characters on every run and platform.
+ */
+
+/** Escapes text for an XML/HTML text node or a double-quoted attribute. */
+export function escapeXml(text: string): string {
+  return text.replace(/[&<>"']/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[c]!);
+}
+
+/** A coordinate with two decimals, no trailing zeros, never "-0". */
+export function coord(x: number): string {
+  const s = (Math.round(x * 100) / 100).toFixed(2).replace(/\.?0+$/, '');
+  return s === '-0' ? '0' : s;
+}
+
+/** Fixed decimals, with "-0.0" shown as "0.0". */
+export function fixed(x: number, digits: number): string {
+  const s = x.toFixed(digits);
+  return /^-0\.?0*$/.test(s) ? s.slice(1) : s;
+}
+
+/** A magnitude with three significant figures at most (228, 90.4, 7.34, 0.312). */
+export function sig3(x: number): string {
+  const a = Math.abs(x);
+  if (a >= 100) return fixed(x, 0);
+  if (a >= 10) return fixed(x, 1);
+  if (a >= 1) return fixed(x, 2);
+  return fixed(x, 3);
+}
+
+/** Attribute list from an object, keys in the given order, values escaped. */
+export function attrs(values: Readonly<Record<string, string | number>>): string {
+  return Object.entries(values)
+    .map(([k, v]) => ` ${k}="${escapeXml(typeof v === 'number' ? coord(v) : v)}"`)
+    .join('');
+}

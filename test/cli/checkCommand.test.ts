@@ -1,0 +1,48 @@
+/** `trivar check` run as a user would (built binary). */
+import { mkdtempSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { describe, expect, it } from 'vitest';
+import { runTrivar } from './runTrivar.js';
+
+const BOARD = 'examples/riverside-cold-store.yaml';
+const FIGURES = 'examples/hand-figures/riverside-cold-store.yaml';
+
+describe('trivar check', () => {
+  it('shows the textbook working, hand vs solved line by line, and the effects', () => {
+    const r = runTrivar(['check', BOARD, FIGURES]);
+    expect(r.stderr).toBe('');
+    expect(r.code).toBe(0);
+    for (const heading of ['Textbook working per phase', 'Hand figures against the solved board', 'Where each difference comes from', 'Cautions'])
+      expect(r.stdout).toContain(heading);
+    for (const effect of ['line-pair branches share unevenly', 'voltage drop at the board', 'neutral return', 'capacitor output at applied voltage', 'voltage-dependent loads'])
+      expect(r.stdout).toContain(effect);
+  });
+
+  it('--json gives the same result as data', () => {
+    const r = runTrivar(['check', BOARD, FIGURES, '--json']);
+    expect(r.code).toBe(0);
+    const data = JSON.parse(r.stdout) as { lines: { phase: string; currentA: { yours: number } }[]; effects: unknown[] };
+    expect(data.lines.map((l) => l.phase)).toEqual(['A', 'B', 'C']);
+    expect(data.lines[0]!.currentA.yours).toBe(166);
+    expect(data.effects).toHaveLength(5);
+  });
+
+  it('bad figures: exit 3, the file and every field path named, no stack trace', () => {
+    const dir = mkdtempSync(join(tmpdir(), 'trivar-check-'));
+    const bad = join(dir, 'figures.yaml');
+    writeFileSync(bad, 'capacitors:\n  - { branch: A-X, kvar: 5 }\n  - { branch: A-B }\n');
+    const r = runTrivar(['check', BOARD, bad]);
+    expect(r.code).toBe(3);
+    expect(r.stderr).toContain(`the hand figures in "${bad}" are not valid`);
+    expect(r.stderr).toContain('capacitors[0].branch');
+    expect(r.stderr).toContain('capacitors[1]');
+    expect(r.stderr).not.toMatch(/at .*\.js:\d+/);
+  });
+
+  it('help is pinned', () => {
+    const r = runTrivar(['check', '--help']);
+    expect(r.code).toBe(0);
+    expect(r.stdout).toMatchSnapshot();
+  });
+});

@@ -1,0 +1,76 @@
+import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { describe, expect, it } from 'vitest';
+import { normaliseBoard, parseBoardText, rebalanceBoard, scaleBoardLoads, solveBoardModel } from '@trivar/core';
+import { ROOT, runTrivar } from './runTrivar.js';
+import { expectClose } from '../support/tolerance.js';
+
+const flats = 'examples/maple-court-flats.yaml';
+
+describe('trivar rebalance (built binary)', () => {
+  it('prints a work order, before/after per condition, the bound and the cautions', () => {
+    const r = runTrivar(['rebalance', flats, '--no-table']);
+    expect(r.stderr).toBe('');
+    expect(r.code).toBe(0);
+    expect(r.stdout).toMatch(/Work order \(\d+ moves?\)/);
+    expect(r.stdout).toContain('Condition "evening peak"');
+    expect(r.stdout).toContain('Condition "sunny noon"');
+    expect(r.stdout).toMatch(/proven best|above the best possible/);
+    expect(r.stdout).toContain('qualified electrician');
+  });
+
+  it('--json is the library report', () => {
+    const r = runTrivar(['rebalance', flats, '--json', '--move-limit', '3', '--no-table']);
+    expect(r.code).toBe(0);
+    const spec = parseBoardText(readFileSync(`${ROOT}${flats}`, 'utf8'));
+    const expected = rebalanceBoard(normaliseBoard(spec), { ...spec.rebalance, moveLimit: 3 }, { moveTable: false });
+    expect(JSON.parse(r.stdout)).toEqual(JSON.parse(JSON.stringify(expected)));
+    expect(expected.moves.length).toBeLessThanOrEqual(3);
+  });
+
+  it('--write saves the moved board, which re-solves to the reported currents; the input is untouched', () => {
+    const dir = mkdtempSync(join(tmpdir(), 'trivar-rebalance-'));
+    const input = join(dir, 'flats.yaml');
+    const text = readFileSync(`${ROOT}${flats}`, 'utf8');
+    writeFileSync(input, text);
+    const out = join(dir, 'flats-moved.yaml');
+    const r = runTrivar(['rebalance', input, '--json', '--no-table', '--write', out]);
+    expect(r.code).toBe(0);
+    expect(readFileSync(input, 'utf8')).toBe(text);
+    const report = JSON.parse(r.stdout) as ReturnType<typeof rebalanceBoard>;
+    const written = readFileSync(out, 'utf8');
+    expect(written).toContain('# Invented example'); // comments kept
+    // Solve the written board in the "evening peak" condition: PV off, everything else as rated.
+    const spec = parseBoardText(written);
+    const board = scaleBoardLoads(normaliseBoard(spec), { fraction: 1, perLoad: { 'Roof PV flat 3': 0, 'Roof PV flat 8': 0 } });
+    const evening = report.conditions.find((c) => c.name === 'evening peak')!.solved.after;
+    solveBoardModel(board).phases.forEach((p, k) => expectClose(p.current.magnitude, evening.lineA[k]!, { rel: 1e-9, abs: 1e-9 }, `line ${p.phase}`));
+    // The moved board is already the best: a second run moves nothing.
+    const again = runTrivar(['rebalance', out, '--json', '--no-table']);
+    expect(JSON.parse(again.stdout).moves).toEqual([]);
+  });
+
+  it('refuses to write over its input', () => {
+    const r = runTrivar(['rebalance', flats, '--write', flats]);
+    expect(r.code).toBe(2);
+    expect(r.stderr).toMatch(/--write .*board file being read/);
+  });
+
+  it('bad study values name the field in the board file', () => {
+    const r = runTrivar(['rebalance', flats, '--move-limit', '-1']);
+    expect(r.code).toBe(3);
+    expect(r.stderr).toMatch(/rebalance\.moveLimit: expected a number >= 0 \(received -1\)/);
+    const aim = runTrivar(['rebalance', flats, '--aim', 'neutrall']);
+    expect(aim.code).toBe(2);
+    expect(aim.stderr).toMatch(/largest-line, neutral/);
+  });
+});
+
+describe('trivar rebalance --help', () => {
+  it('is pinned by a snapshot', () => {
+    const r = runTrivar(['rebalance', '--help']);
+    expect(r.code).toBe(0);
+    expect(r.stdout).toMatchSnapshot();
+  });
+});

@@ -1,0 +1,38 @@
+/** User text reaches the terminal with its control characters escaped; JSON keeps it exact. */
+import { describe, expect, it } from 'vitest';
+import { escapeControlCharacters } from '../../packages/cli/src/format/terminalText.js';
+import { runTrivar } from './runTrivar.js';
+
+const hostileName = 'Oven\u001b[2J\u001b]0;owned\u0007\nWarnings\n  none\u0000\u009b31m\u202e';
+const board = JSON.stringify({
+  name: `Board\u001b[H`,
+  supply: { system: 'three-phase-4wire', voltage: { lineToLine: 400 }, frequencyHz: 50 },
+  loads: [{ name: hostileName, connection: 'A-N', kW: 2, pf: 1 }],
+});
+
+const CONTROL = /[\u0000-\u0008\u000b-\u001f\u007f-\u009f\u202a-\u202e]/;
+
+describe('control characters in names', () => {
+  it('are shown escaped in the text report, and cannot forge a section', () => {
+    const r = runTrivar(['solve', '-'], board);
+    expect(r.code).toBe(0);
+    expect(r.stdout).not.toMatch(CONTROL);
+    expect(r.stdout).toContain('Oven\\e[2J\\e]0;owned\\u{7}\\nWarnings\\n  none\\0\\u{9B}31m\\u{202E}');
+    expect(r.stdout.match(/^Warnings$/gm)).toHaveLength(1);
+    expect(r.stdout.split('\n')[0]).toBe('Board\\e[H');
+  });
+  it('stay exact in JSON', () => {
+    const r = runTrivar(['solve', '-', '--json'], board);
+    expect(JSON.parse(r.stdout).loads[0].name).toBe(hostileName);
+  });
+  it('are escaped in error messages on stderr', () => {
+    const bad = JSON.stringify({ supply: { system: 'three-phase-4wire', voltage: { lineToLine: 400 }, frequencyHz: 50 }, loads: [], ['\u001b[2Jx']: 1 });
+    const r = runTrivar(['solve', '-'], bad);
+    expect(r.code).toBe(3);
+    expect(r.stderr).not.toMatch(CONTROL);
+    expect(r.stderr).toContain('\\e[2Jx');
+  });
+  it('escapeControlCharacters leaves ordinary text, accents and units alone', () => {
+    expect(escapeControlCharacters('Café ∠V° µF Ω — ok')).toBe('Café ∠V° µF Ω — ok');
+  });
+});

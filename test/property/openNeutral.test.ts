@@ -1,0 +1,43 @@
+/**
+ * Laws on the open-neutral continuation path (followNeutralBreak and its Newton
+ * solver): whatever state it ends on — the open neutral, or the last state
+ * before a collapse — obeys Kirchhoff's current law, Ohm's law on every element
+ * and every load's voltage-dependence model, on random boards of every load model.
+ */
+import fc from 'fast-check';
+import { describe, expect, it } from 'vitest';
+import { followNeutralBreak, normaliseBoard, solveBoard } from '@trivar/core';
+import { boardSpecArb } from './arbitraries/boardSpec.js';
+import { assertCurrentLawHolds, assertElementLawsHold, assertLoadModelsHold } from './laws.js';
+
+const arb = boardSpecArb({ systems: ['three-phase-4wire', 'split-phase'], generation: false, maxLoads: 5 });
+
+describe('open-neutral continuation', () => {
+  it('ends on a true solution of the board (KCL, element laws, load models)', () => {
+    fc.assert(
+      fc.property(arb, (spec) => {
+        const path = followNeutralBreak(normaliseBoard(spec));
+        assertCurrentLawHolds(path.state);
+        assertElementLawsHold(path.state);
+        assertLoadModelsHold(path.state, 1e-8);
+        if (path.reachedOpen) expect(path.state.board.neutralOpen).toBe(true);
+        else expect(path.stateAtOhms).not.toBeNull();
+      }),
+      { numRuns: 60 },
+    );
+  });
+
+  it('on constant-impedance boards reaches open and agrees with the direct linear solve', () => {
+    const linear = boardSpecArb({ systems: ['three-phase-4wire', 'split-phase'], models: 'constant-impedance', generation: false, maxLoads: 5 });
+    fc.assert(
+      fc.property(linear, (spec) => {
+        const study = solveBoard(spec, { openNeutral: true }).openNeutral!;
+        if (!study.applicable) return;
+        expect(study.reachedFromIntact).toBe(true);
+        expect(study.multipleStates).toBe(false);
+        study.loads.forEach((l, k) => expect(Math.abs(l.voltage - study.impedanceModel!.loads[k]!.voltage)).toBeLessThanOrEqual(1e-6 * l.voltage + 1e-9));
+      }),
+      { numRuns: 40 },
+    );
+  });
+});

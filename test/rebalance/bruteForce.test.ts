@@ -1,0 +1,171 @@
+/**
+ * Exhaustive enumeration on small random boards (≤ 10 circuits, every option of
+ * every circuit, scored by the test-side model in support/rebalanceBoards.ts):
+ * - branch-and-bound's answer has the brute-force best score, with the fewest
+ *   moves among the assignments that reach it;
+ * - the local search's answer lies within its reported gap: its lower bound is
+ *   at or below the true best and its score at most `gap` above it;
+ * - the report's fast-model figures match the test-side figures of the chosen wiring.
+ */
+import fc from 'fast-check';
+import { describe, expect, it } from 'vitest';
+import { InputError, normaliseBoard, parseBoard, rebalanceBoard, type BoardSpec, type ConnectionSpec, type RebalanceReport } from '@trivar/core';
+import { boardFigures, enumerateAssignments, movesBetween, smallBoardArb, type Figures } from './support/rebalanceBoards.js';
+import { expectClose } from '../support/tolerance.js';
+
+interface Study {
+  aim: { largestLine?: number; neutral?: number; currentUnbalance?: number };
+  combine: 'worst' | 'weighted';
+  moveLimit?: number;
+  pinned: string[];
+  lineCapacityA?: number;
+  conditions: { name: string; weight: number; factor: number; circuits: Record<string, number> }[];
+}
+
+const studyArb = (spec: BoardSpec): fc.Arbitrary<Study> => {
+  const names = spec.loads.map((l) => l.name);
+  const threePhase = spec.supply.system !== 'split-phase';
+  const hasNeutral = spec.supply.system !== 'three-phase-3wire';
+  return fc.record({
+    aim: fc.oneof(
+      fc.constant({ largestLine: 1, ...(hasNeutral ? { neutral: 1 } : {}) }),
+      fc.constant({ largestLine: 1 }),
+      hasNeutral ? fc.constant({ neutral: 1 }) : fc.constant({ largestLine: 2 }),
+      threePhase ? fc.constant({ currentUnbalance: 1, largestLine: 0.2 }) : fc.constant({ largestLine: 1 }),
+    ),
+    combine: fc.constantFrom<'worst' | 'weighted'>('worst', 'weighted'),
+    moveLimit: fc.option(fc.integer({ min: 0, max: 4 }), { nil: undefined }),
+    pinned: fc.subarray(names, { maxLength: 2 }),
+    lineCapacityA: fc.constant(undefined),
+    conditions: fc.array(
+      fc.record({
+        name: fc.constant(''),
+        weight: fc.double({ min: 0.5, max: 3, noNaN: true }),
+        factor: fc.double({ min: 0.2, max: 1, noNaN: true }),
+        circuits: fc.dictionary(fc.constantFrom(...names), fc.double({ min: 0, max: 1, noNaN: true }), { maxKeys: 2 }),
+      }),
+      { minLength: 1, maxLength: 2 },
+    ).map((cs) => cs.map((x, k) => ({ ...x, name: `condition ${k + 1}` }))),
+  }) as unknown as fc.Arbitrary<Study>;
+};
+
+/** The study's score from test-side figures (the definition in the rebalance spec, restated). */
+function scoreOf(study: Study, figures: readonly (Figures & { positive: number })[]): number {
+  const per = figures.map((f) => {
+    const w = study.aim;
+    return (w.largestLine ?? 0) * Math.max(...f.lines) + (w.neutral ?? 0) * f.neutral + ((w.currentUnbalance ?? 0) * 100 * f.negative) / f.positive;
+  });
+  if (study.combine === 'worst') return Math.max(...per);
+  const total = study.conditions.reduce((s, c) => s + c.weight, 0);
+  return per.reduce((s, x, k) => s + (study.conditions[k]!.weight * x) / total, 0);
+}
+
+function factorsOf(spec: BoardSpec, condition: Study['conditions'][number]): number[] {
+  return spec.loads.map((l) => condition.circuits[l.name] ?? condition.factor);
+}
+
+/** |I1| on a three-phase board (same for every assignment): from Parseval, mean square = I0² + I1² + I2². */
+function positiveOf(f: Figures): number {
+  const meanSquare = f.lines.reduce((s, x) => s + x * x, 0) / f.lines.length;
+  return Math.sqrt(Math.max(meanSquare - (f.neutral / 3) ** 2 - f.negative ** 2, 0));
+}
+
+interface BruteBest {
+  score: number;
+  moves: number;
+  feasible: boolean;
+}
+
+function bruteForce(spec: BoardSpec, study: Study): BruteBest {
+  const pins = new Map<number, ConnectionSpec>();
+  study.pinned.forEach((name) => {
+    const i = spec.loads.findIndex((l) => l.name === name);
+    pins.set(i, spec.loads[i]!.connection);
+  });
+  const scores: { score: number; moves: number }[] = [];
+  enumerateAssignments(spec, pins, (connections) => {
+    const moves = movesBetween(spec, connections);
+    if (study.moveLimit !== undefined && moves > study.moveLimit) return;
+    const figures = study.conditions.map((c) => {
+      const f = boardFigures(spec, connections, factorsOf(spec, c));
+      return { ...f, positive: positiveOf(f) };
+    });
+    if (study.lineCapacityA !== undefined && figures.some((f) => f.lines.some((x) => x > study.lineCapacityA!))) return;
+    scores.push({ score: scoreOf(study, figures), moves });
+  });
+  if (!scores.length) return { score: NaN, moves: NaN, feasible: false };
+  const best = Math.min(...scores.map((s) => s.score));
+  const tie = 1e-9 * Math.max(best, 1e-6);
+  // The exact search counts scores within its tie tolerance as equal; give it the same slack.
+  const fewest = Math.min(...scores.filter((s) => s.score <= best + 1e-12 * Math.max(best, 1)).map((s) => s.moves));
+  return { score: best, moves: fewest, feasible: scores.some((s) => s.score <= best + tie) };
+}
+
+function run(spec: BoardSpec, study: Study, method: 'exact' | 'local-search'): RebalanceReport {
+  return rebalanceBoard(normaliseBoard(parseBoard(spec)), study, { method, moveTable: false, kicks: 20 });
+}
+
+const boardAndStudy = smallBoardArb(10).chain((spec) => studyArb(spec).map((study) => ({ spec, study })));
+
+describe('rebalance: exhaustive enumeration on small boards', () => {
+  it('branch-and-bound finds the brute-force best score with the fewest moves', () => {
+    fc.assert(
+      fc.property(boardAndStudy, ({ spec, study }) => {
+        const brute = bruteForce(spec, study);
+        const report = run(spec, study, 'exact');
+        expect(report.proven).toBe(true);
+        expectClose(report.score.after, brute.score, { rel: 1e-9, abs: 1e-9 }, 'best score');
+        expect(report.moves.length).toBeLessThanOrEqual(brute.moves);
+        // The fast-model figures of the chosen wiring, against the test-side model.
+        const after = spec.loads.map((l) => report.moves.find((m) => m.name === l.name)?.to ?? l.connection);
+        report.conditions.forEach((c, k) => {
+          const f = boardFigures(spec, after, factorsOf(spec, study.conditions[k]!));
+          const scale = Math.max(...f.lines, 1);
+          c.model.after.lineA.forEach((x, n) => expectClose(x, f.lines[n]!, { rel: 1e-9, abs: 1e-9 * scale }, `line ${n}`));
+          if (c.model.after.neutralA !== null) expectClose(c.model.after.neutralA, f.neutral, { rel: 1e-9, abs: 1e-9 * scale }, 'neutral');
+        });
+      }),
+      { numRuns: 25 },
+    );
+  });
+
+  it('the local search lies within its reported gap of the brute-force best', () => {
+    fc.assert(
+      fc.property(boardAndStudy, ({ spec, study }) => {
+        const brute = bruteForce(spec, study);
+        const report = run(spec, study, 'local-search');
+        const slack = 1e-9 * Math.max(brute.score, 1);
+        expect(report.score.after).toBeGreaterThanOrEqual(brute.score - slack);
+        expect(report.score.lowerBound).not.toBeNull();
+        expect(report.score.lowerBound!).toBeLessThanOrEqual(brute.score + slack);
+        expect(report.score.after - brute.score).toBeLessThanOrEqual(report.score.gap! + slack);
+      }),
+      { numRuns: 25 },
+    );
+  });
+
+  it('a line capacity: the answer keeps within it exactly when some wiring does', () => {
+    fc.assert(
+      fc.property(boardAndStudy, fc.double({ min: 0.5, max: 1.2, noNaN: true }), ({ spec, study }, share) => {
+        const home = boardFigures(spec, spec.loads.map((l) => l.connection));
+        const capped = { ...study, lineCapacityA: share * Math.max(...home.lines) + 1e-3 };
+        const brute = bruteForce(spec, capped);
+        let report: RebalanceReport;
+        try {
+          report = run(spec, capped, 'exact');
+        } catch (error) {
+          // Refused up front only when the bound proves no wiring fits.
+          expect(error).toBeInstanceOf(InputError);
+          expect((error as InputError).issues[0]!.path).toBe('lineCapacityA');
+          expect(brute.feasible).toBe(false);
+          return;
+        }
+        if (brute.feasible) {
+          expectClose(report.score.after, brute.score, { rel: 1e-9, abs: 1e-9 }, 'best score within capacity');
+          report.conditions.forEach((c) => c.model.after.lineA.forEach((x) => expect(x).toBeLessThanOrEqual(capped.lineCapacityA * (1 + 1e-9))));
+        } else expect(report.notes.join(' ')).toMatch(/capacity/);
+      }),
+      { numRuns: 25 },
+    );
+  });
+});
