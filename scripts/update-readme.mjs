@@ -7,6 +7,7 @@ const blocks = [
   ['demo-output', ['solve', 'examples/corner-bakery.yaml']],
   ['correct-output', ['correct', 'examples/riverside-cold-store.yaml']],
   ['installation-output', ['solve', 'examples/maple-court-riser.yaml']],
+  ['harmonics-output', ['harmonics', 'examples/mill-street-offices.yaml']],
   ['check-output', ['check', 'examples/riverside-cold-store.yaml', 'examples/hand-figures/riverside-cold-store.yaml']],
 ];
 let readme = readFileSync('README.md', 'utf8');

@@ -1,5 +1,5 @@
 /** `trivar check` run as a user would (built binary). */
-import { mkdtempSync, writeFileSync } from 'node:fs';
+import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
@@ -38,6 +38,19 @@ describe('trivar check', () => {
     expect(r.stderr).toContain('capacitors[0].branch');
     expect(r.stderr).toContain('capacitors[1]');
     expect(r.stderr).not.toMatch(/at .*\.js:\d+/);
+  });
+
+  it('--diagram writes each line\'s current triangle without and with the capacitors; never over an input', () => {
+    const dir = mkdtempSync(join(tmpdir(), 'trivar-check-'));
+    const out = join(dir, 'triangles.svg');
+    const r = runTrivar(['check', BOARD, FIGURES, '--json', '--diagram', out]);
+    expect(r.code).toBe(0);
+    const solved = (JSON.parse(r.stdout) as { lines: { currentA: { solved: number } }[] }).lines.map((l) => l.currentA.solved);
+    const svg = readFileSync(out, 'utf8');
+    expect(svg).toContain('data-view="triangles"');
+    const after = [...svg.matchAll(/data-state="after" data-magnitude="([\d.]+)"/g)].map((m) => Number(m[1]));
+    expect(after).toEqual(solved.map((a) => Number(a.toFixed(a >= 100 ? 0 : 1))));
+    expect(runTrivar(['check', BOARD, FIGURES, '--diagram', FIGURES]).code).toBe(2);
   });
 
   it('help is pinned', () => {

@@ -35,11 +35,12 @@ describe('trivar correct (built binary)', () => {
   });
 
   it('exits 5 with the reason when the target cannot be reached', () => {
-    // The bakery's phase A already leads (ovens across A-B): a never-leading capacitor bank cannot fix it.
+    // The bakery's ovens across A-B make line A lead and B lag: a delta bank that may not make a line lead
+    // (line A no more than it already does, line C not at all) cannot lift line B to 0.95.
     const r = runTrivar(['correct', 'examples/corner-bakery.yaml', '--arrangement', 'delta-bank']);
     expect(r.code).toBe(5);
     expect(r.stdout).toMatch(/NOT REACHABLE|MISSES/);
-    expect(r.stdout).toMatch(/leads/);
+    expect(r.stdout).toMatch(/line B is at 0\.9\d\d lagging, below the target 0\.950 lagging/);
   });
 
   it('rejects a bad option value naming the option (exit 2)', () => {

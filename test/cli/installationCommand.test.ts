@@ -30,6 +30,13 @@ describe('trivar solve on an installation (built binary)', () => {
     const all = runTrivar(['solve', file, '--all-boards']);
     expect(all.stdout.match(/Symmetrical components/g)).toHaveLength(library().boards.length);
   });
+  it('fits 100 columns, summary and full figures alike', () => {
+    for (const args of [[], ['--all-boards'], ['--all-boards', '--open-neutral']]) {
+      const r = runTrivar(['solve', file, ...args]);
+      expect(r.code).toBe(0);
+      expect(Math.max(...r.stdout.split('\n').map((l) => [...l].length))).toBeLessThanOrEqual(100);
+    }
+  });
   it('--json prints exactly the library result', () => {
     const r = runTrivar(['solve', file, '--json']);
     expect(JSON.parse(r.stdout)).toEqual(JSON.parse(JSON.stringify(library())));

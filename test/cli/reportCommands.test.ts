@@ -52,6 +52,16 @@ describe('trivar report', () => {
     expect(readFileSync(clash, 'utf8')).toBe(before);
   });
 
+  it('an invalid board: exit 3 with the field path, and no report file written', () => {
+    const dir = scratch();
+    const board = join(dir, 'bad.yaml');
+    writeFileSync(board, readFileSync(join(ROOT, 'examples/corner-bakery.yaml'), 'utf8').replace('frequencyHz: 50', 'frequencyHz: 45'));
+    const r = runTrivar(['report', board, '-o', join(dir, 'r.html')]);
+    expect(r.code).toBe(3);
+    expect(r.stderr).toContain('supply.frequencyHz');
+    expect(readdirSync(dir)).toEqual(['bad.yaml']);
+  });
+
   it('Markdown needs an output file; an unwritable one is a clear error', () => {
     const r = runTrivar(['report', 'examples/corner-bakery.yaml', '--format', 'md']);
     expect(r.code).toBe(2);

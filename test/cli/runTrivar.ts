@@ -14,6 +14,6 @@ export interface RunResult {
 
 export function runTrivar(args: readonly string[], input?: string): RunResult {
   if (!existsSync(`${ROOT}packages/cli/dist/trivar.js`)) throw new Error('the CLI is not built: run `npm run build` (npm test does it)');
-  const r = spawnSync(process.execPath, [BIN, ...args], { cwd: ROOT, input, encoding: 'utf8', env: { ...process.env, NO_COLOR: '1' } });
+  const r = spawnSync(process.execPath, [BIN, ...args], { cwd: ROOT, input, encoding: 'utf8', maxBuffer: 64 * 1024 * 1024, env: { ...process.env, NO_COLOR: '1' } });
   return { code: r.status ?? -1, stdout: r.stdout, stderr: r.stderr };
 }

@@ -155,9 +155,15 @@ describe('capacitor-only balancing of a line-to-line load (methods notes §1.8, 
 
   it('with the default never-leading target a resistive line-to-line load gets no capacitor at all: any capacitor makes a line lead', () => {
     const board = makeBoard('three-phase-3wire', [{ name: 'kiln element', connection: 'A-B', kW: 12, pf: 1 }]);
-    const sizing = sizeBalancingCompensator(board, { target: { pf: 1 } });
-    for (const b of sizing.capacitorOnly.branches) expectClose(b.kvarAtNominalV, 0, { rel: 0, abs: 1e-9 });
-    expect(sizing.status).toBe('infeasible');
-    expect(sizing.reasons.join(' ')).toMatch(/reactors on C-A/);
+    const none = sizeBalancingCompensator(board, { target: { pf: 1 }, reactors: 'none' });
+    for (const b of none.capacitorOnly.branches) expectClose(b.kvarAtNominalV, 0, { rel: 0, abs: 1e-9 });
+    expect(none.status).toBe('infeasible');
+    expect(none.reasons.join(' ')).toMatch(/\|I2\|\/\|I1\| is 100\.0 %, above the 10\.0 %/);
+    expect(none.reasons.join(' ')).toMatch(/a capacitor of 6\.93 kvar on B-C, a reactor of 6\.93 kvar on C-A/);
+    // With reactors allowed (the default) the Steinmetz circuit is what gets recommended.
+    const steinmetz = sizeBalancingCompensator(board, { target: { pf: 1 } });
+    expect(steinmetz.status).toBe('meets-target');
+    expect(steinmetz.recommended).toBe('ideal');
+    expect(steinmetz.balanceAfter.negativeSequencePercent).toBeLessThan(1e-6);
   });
 });

@@ -19,4 +19,18 @@ describe('correction regressions', () => {
     expect(a!.meetsMinimum).toBe(true);
     expect(Math.abs(a!.pf - pf) / pf).toBeLessThan(1e-10);
   });
+
+  it('a floating star whose delta sizing is round-off with one branch at zero is no bank (not an infinite element)', () => {
+    // Found by the bank-build property (seed -1945660194): the LP left 1e-12 kvar on two delta branches and
+    // 0 on the third, and the Δ→Y map made the star element opposite the zero branch infinite (singular network).
+    const board = normaliseBoard(
+      parseBoard({
+        supply: { system: 'three-phase-3wire', voltage: { lineToLine: 480 }, frequencyHz: 60, impedance: { r: 0.1447098804278048, x: 0.23558489108296043 } },
+        loads: [{ name: 'load 1', connection: 'A-B', kW: 0.5, kvar: 2 / 3, model: 'constant-impedance' }],
+      }),
+    );
+    const report = correctBoard(board, { arrangement: 'star-bank', target: { pf: 0.85 } });
+    expect(report.reasons.length).toBeGreaterThan(0);
+    expect(report.sizing.arrangement === 'star-bank' && report.sizing.branches.every((b) => b.element === 'none')).toBe(true);
+  });
 });

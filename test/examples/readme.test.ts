@@ -20,6 +20,11 @@ describe('README', () => {
     const shown = block.replace(/^\s*```text\n/, '').replace(/```\s*$/, '');
     expect(shown.trimEnd()).toBe(runTrivar(['solve', 'examples/maple-court-riser.yaml']).stdout.trimEnd());
   });
+  it('harmonics output block matches `trivar harmonics examples/mill-street-offices.yaml`', () => {
+    const block = readme.split('<!-- harmonics-output:start -->')[1]!.split('<!-- harmonics-output:end -->')[0]!;
+    const shown = block.replace(/^\s*```text\n/, '').replace(/```\s*$/, '');
+    expect(shown.trimEnd()).toBe(runTrivar(['harmonics', 'examples/mill-street-offices.yaml']).stdout.trimEnd());
+  });
   it.each(['quickstart.ts', 'correction-quickstart.ts'])('shows examples/%s as it is', (file) => {
     const source = readFileSync(`${ROOT}examples/${file}`, 'utf8');
     expect(readme).toContain(source.slice(source.indexOf('import {')).trimEnd());

@@ -6,7 +6,8 @@
  */
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { followNeutralBreak, normaliseBoard, solveBoard } from '@trivar/core';
+import { followNeutralBreak, normaliseBoard, solveBoard, solveNetwork, solveNetworkByNewton } from '@trivar/core';
+import { cAbs, cScale, cSub } from '../support/complexMath.js';
 import { boardSpecArb } from './arbitraries/boardSpec.js';
 import { assertCurrentLawHolds, assertElementLawsHold, assertLoadModelsHold } from './laws.js';
 
@@ -38,6 +39,27 @@ describe('open-neutral continuation', () => {
         study.loads.forEach((l, k) => expect(Math.abs(l.voltage - study.impedanceModel!.loads[k]!.voltage)).toBeLessThanOrEqual(1e-6 * l.voltage + 1e-9));
       }),
       { numRuns: 40 },
+    );
+  });
+
+  it('Newton started near the fixed-point solution of any board returns to it, and it obeys the laws', () => {
+    fc.assert(
+      fc.property(boardSpecArb(), fc.double({ min: -0.03, max: 0.03, noNaN: true }), (spec, nudge) => {
+        const board = normaliseBoard(spec);
+        const reference = solveNetwork(board);
+        const start = reference.nodeVoltages.map((v) => (v ? cScale(v, 1 + nudge) : null));
+        const out = solveNetworkByNewton(board, start);
+        expect(out.converged).toBe(true);
+        if (!out.converged) return;
+        out.solution.nodeVoltages.forEach((v, k) => {
+          const w = reference.nodeVoltages[k];
+          if (v && w) expect(cAbs(cSub(v, w))).toBeLessThan(1e-8 * board.nominalLineToNeutralV);
+        });
+        assertCurrentLawHolds(out.solution);
+        assertElementLawsHold(out.solution);
+        assertLoadModelsHold(out.solution, 1e-8);
+      }),
+      { numRuns: 80 },
     );
   });
 });

@@ -1,7 +1,8 @@
 /** The report of a board: every required section, self-contained, and the same for the same board. */
 import { readFileSync, readdirSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
-import { buildBoardReport, correctBoard, normaliseBoard, parseBoard, readBoardText, renderReportHtml, renderReportMarkdown, solveBoardModel, type ReportSection } from '@trivar/core';
+import { parseSvg } from './svgReading.js';
+import { renderPhasorDiagram, buildBoardReport, correctBoard, normaliseBoard, parseBoard, readBoardText, renderReportHtml, renderReportMarkdown, solveBoardModel, type ReportSection } from '@trivar/core';
 import { fileURLToPath } from 'node:url';
 import { isBoardExample } from '../support/boardExamples.js';
 
@@ -39,6 +40,27 @@ describe('board report', () => {
     if (correction) for (const c of correction.cautions) expect(cautions.items).toContain(c);
   });
 
+  it('the panel schedule takes circuit numbers and breaker ratings from the board file', () => {
+    const { doc } = reportOf('riverside-cold-store.yaml');
+    const schedule = doc.sections.find((s) => s.id === 'schedule')!.blocks[0]!;
+    if (schedule.kind !== 'table') throw new Error('the schedule is a table');
+    expect(schedule.columns.map((c) => c.label)).toEqual(['No.', 'Circuit', 'Phase', 'Breaker A', 'Model', 'kW', 'kvar', 'A', 'PF', 'V %nom']);
+    expect(schedule.rows[0]!.slice(0, 4)).toEqual(['Q1', 'Compressor rack 1', 'ABC-delta', '100']);
+    const bakery = reportOf('corner-bakery.yaml').doc.sections.find((s) => s.id === 'schedule')!.blocks[0]!;
+    if (bakery.kind !== 'table') throw new Error('the schedule is a table');
+    expect(bakery.rows[0]!.slice(0, 4)).toEqual(['1', 'Deck oven 1', 'A-B', '—']);
+  });
+
+  it('names only the standards that apply: no sequence or motor standards on a split-phase board', () => {
+    const standards = (file: string) => {
+      const block = reportOf(file).doc.sections.find((s) => s.id === 'standards')!.blocks[0]!;
+      return block.kind === 'table' ? block.rows.map((r) => r[0]!) : [];
+    };
+    expect(standards('harbour-cottages.yaml')).toEqual(['IEEE Std 1459-2010']);
+    expect(standards('corner-bakery.yaml')).toContain('NEMA MG 1');
+    expect(standards('riverside-cold-store.yaml')).toContain('IEC 60831-1');
+  });
+
   it('HTML is one self-contained file: inline CSS and SVG, no scripts, links or remote references', () => {
     const { doc } = reportOf('riverside-cold-store.yaml');
     const html = renderReportHtml(doc);
@@ -60,6 +82,9 @@ describe('board report', () => {
     const html = renderReportHtml(buildBoardReport({ spec, result }));
     expect(html).not.toContain('<script>');
     expect(html).toContain('&lt;script&gt;alert(1)&lt;/script&gt;');
+    const svg = renderPhasorDiagram(solveBoardModel(normaliseBoard(parseBoard({ ...spec, name: 'evil\u001b[2J\u0000name' }))));
+    expect(svg).not.toMatch(/[\u0000-\u0008\u001b]/);
+    expect(() => parseSvg(svg)).not.toThrow();
     const md = renderReportMarkdown(buildBoardReport({ spec, result }), 'r').markdown;
     expect(md).toContain('L1\\|2');
   });

@@ -5,6 +5,7 @@ import { DEFAULT_MAX_INPUT_MB, type CliIo } from './io.js';
 import { runSolve } from './commands/solve.js';
 import { runSchema } from './commands/schema.js';
 import { runCorrect, type CorrectCommandOptions } from './commands/correct.js';
+import { runHarmonics } from './commands/harmonics.js';
 import { runRebalance, type RebalanceCommandOptions } from './commands/rebalance.js';
 import { DIAGRAM_VIEWS, runDiagram, type DiagramCommandOptions } from './commands/diagram.js';
 import { runReport, type ReportCommandOptions } from './commands/report.js';
@@ -41,6 +42,16 @@ Examples:
 Exit codes: as for solve, plus
   5  the study ran but the target cannot be met with the allowed equipment (the report says why
      and shows the best reachable result)`;
+
+const HARMONICS_EXAMPLES = `
+Spectra go on the loads (spectrum: switch-mode | [{ order, percent, angleDeg }]); background distortion,
+an installed bank and the IEEE 519 check go under "harmonics:" in the board file (see trivar schema).
+
+Examples:
+  trivar harmonics examples/mill-street-offices.yaml
+  trivar harmonics examples/mill-street-offices.yaml --json > harmonics.json
+
+Exit codes: as for solve`;
 
 const REBALANCE_EXAMPLES = `
 The study can also live in the board file under "rebalance:" (pins, load conditions, capacities;
@@ -106,6 +117,7 @@ The figures file (YAML or JSON) lists the capacitors you chose and, if you like,
 
 Examples:
   trivar check examples/riverside-cold-store.yaml examples/hand-figures/riverside-cold-store.yaml
+  trivar check board.yaml my-figures.yaml --diagram triangles.svg
   trivar check board.yaml my-figures.yaml --json`;
 
 function numberIn(min: number, max: number, what: string) {
@@ -176,6 +188,16 @@ export function createProgram(io: CliIo, outcome: RunOutcome = { exitCode: EXIT.
     });
 
   program
+    .command('harmonics')
+    .description('harmonic study: line and neutral rms with harmonics, THD, resonance scan of every bank state, capacitor duty')
+    .argument('<board>', 'board file (YAML or JSON), or - for standard input')
+    .option('--json', 'print the full report (with the scan data) as JSON instead of the text report')
+    .addHelpText('after', HARMONICS_EXAMPLES)
+    .action(async (board: string, opts: { json?: boolean }) => {
+      await runHarmonics(board, opts, io);
+    });
+
+  program
     .command('rebalance')
     .description('find which circuits to move to which phase (fewest moves, proven bound) and re-solve the board')
     .argument('<board>', 'board file (YAML or JSON), or - for standard input')
@@ -223,6 +245,7 @@ export function createProgram(io: CliIo, outcome: RunOutcome = { exitCode: EXIT.
     .argument('<board>', 'board file (YAML or JSON), or - for standard input')
     .argument('<figures>', 'your hand figures (YAML or JSON): capacitors per phase or line pair, expected PF and currents')
     .option('--json', 'print the full result as JSON instead of the report')
+    .option('--diagram <file>', 'also write the current triangle of every line, without and with your capacitors, as SVG')
     .addHelpText('after', CHECK_EXAMPLES)
     .action(async (board: string, figures: string, opts: CheckCommandOptions) => {
       await runCheck(board, figures, opts, io);

@@ -95,6 +95,8 @@ export { validateCorrectionSpec, parseCorrectionSpec } from './correction/valida
 export { CORRECTION_DEFAULTS } from './correction/correctionDefaults.js';
 export type { ResolvedTarget, TargetCheck, LineTargetCheck, BoardTargetDefinition } from './correction/correctionTarget.js';
 export { resolveTarget, checkTarget, boardPowerFactor } from './correction/correctionTarget.js';
+export type { BalanceTarget, BalanceCheck } from './correction/balanceTarget.js';
+export { checkBalance } from './correction/balanceTarget.js';
 export type { EquipmentGroup, EquipmentBranch, EquipmentTerminal, BranchSlot, AddEquipmentOptions } from './correction/equipment.js';
 export { addCorrectionEquipment } from './correction/equipment.js';
 export type { AppliedConditions, CapacitorOutput } from './correction/capacitorOutput.js';
@@ -117,6 +119,30 @@ export { correctBoard } from './correction/correctBoard.js';
 export type * from './correction/correctionResult.js';
 export { CORRECTION_CAUTIONS } from './correction/correctionWording.js';
 
+// Harmonics
+export type * from './harmonics/harmonicsResult.js';
+export type { SpectrumSpec, SpectrumEntrySpec, LinearForm, HarmonicsSectionSpec, InstalledBankSpec } from './harmonics/harmonicsSpec.js';
+export { harmonicsSectionSchema, MAX_ORDER } from './harmonics/harmonicsSpec.js';
+export type { SpectrumKind, TypicalSpectrum } from './harmonics/typicalSpectra.js';
+export { TYPICAL_SPECTRA, SPECTRUM_KINDS } from './harmonics/typicalSpectra.js';
+export type { HarmonicModel, LoadBehaviour, OrderContent, BankModel } from './harmonics/harmonicModel.js';
+export { resolveHarmonicModel, addInstalledBank, ordersPresent } from './harmonics/harmonicModel.js';
+export { solveAtOrder, impedanceAtOrder, branchAdmittanceAtOrder } from './harmonics/networkAtOrder.js';
+export type { OrderSolution } from './harmonics/readHarmonics.js';
+export type { HarmonicsOptions } from './harmonics/studyHarmonics.js';
+export { studyHarmonics, analyseHarmonics, solveHarmonicOrders, withSteps } from './harmonics/studyHarmonics.js';
+export type { ScanEvaluator } from './harmonics/scanResonance.js';
+export { scanResonance, createScanEvaluator, scanGrid, stepCombinations } from './harmonics/scanResonance.js';
+export { DUTY_LIMITS, dutyFigures } from './harmonics/capacitorDuty.js';
+export { tuningOrder, capacitorVoltage, detunedOutputKvar, detunedSusceptance, DETUNING_FACTORS_PERCENT } from './harmonics/detuning.js';
+export { ieee519OrderLimit, ieee519Row } from './harmonics/ieee519.js';
+export { HARMONICS_DEFAULTS } from './harmonics/harmonicsDefaults.js';
+export { HARMONICS_CAUTIONS } from './harmonics/harmonicsWording.js';
+export type { FixedNetworkInput } from './network/solveFixedNetwork.js';
+export { solveFixedNetwork } from './network/solveFixedNetwork.js';
+export type { PassiveNetworkPlan, NodalMatrix } from './network/terminalImpedance.js';
+export { planPassiveNetwork } from './network/terminalImpedance.js';
+
 // Rebalancing (which circuits to move to which phase)
 export type { RebalanceSpec, AimSpec, AimFigure, LoadConditionSpec, PinSpec } from './rebalance/rebalanceSpec.js';
 export { rebalanceSpecSchema, AIM_FIGURES } from './rebalance/rebalanceSpec.js';
@@ -130,6 +156,7 @@ export { rewriteBoardText } from './rebalance/rewriteBoardText.js';
 // Drawings and reports (SVG/HTML/Markdown text; the CLI writes the files)
 export type { PhasorDiagramOptions } from './render/renderPhasorDiagram.js';
 export { renderPhasorDiagram } from './render/renderPhasorDiagram.js';
+export type { SequenceDiagramOptions } from './render/renderSequenceDiagram.js';
 export { renderSequenceDiagram } from './render/renderSequenceDiagram.js';
 export type { CurrentTriangleOptions, LineCurrentParts } from './render/renderCurrentTriangles.js';
 export { renderCurrentTriangles, lineCurrentParts } from './render/renderCurrentTriangles.js';
@@ -146,5 +173,5 @@ export type { HandFiguresSpec, HandCapacitorSpec, HandBranch } from './handCheck
 export { handFiguresSchema } from './handCheck/handFiguresSpec.js';
 export { parseHandFigures } from './handCheck/validateHandFigures.js';
 export type * from './handCheck/handCheckResult.js';
-export { checkHandFigures } from './handCheck/checkHandFigures.js';
+export { checkHandFigures, addHandCapacitors } from './handCheck/checkHandFigures.js';
 export { textbookWorking } from './handCheck/textbookWorking.js';

@@ -1,11 +1,15 @@
 /** `trivar check`: solve the board with the capacitors of a hand calculation and explain every difference. */
-import { checkHandFigures, InputError, normaliseBoard, parseBoard, readBoardText, type HandCheckResult } from '@trivar/core';
+import { addHandCapacitors, checkHandFigures, InputError, normaliseBoard, parseBoard, readBoardText, renderCurrentTriangles, solveBoardModel, type HandCheckResult } from '@trivar/core';
+import { assertNotInput, writeOutputFile } from '../outputFiles.js';
 import type { CliIo } from '../io.js';
 import { UsageError } from '../exitCodes.js';
 import { renderHandCheckReport } from '../format/handCheckReport.js';
+import { writeResult } from '../writeResult.js';
 
 export interface CheckCommandOptions {
   readonly json?: boolean;
+  /** Also write the per-line current triangles (without → with the capacitors) to this SVG file. */
+  readonly diagram?: string;
 }
 
 /** The figures file, with read errors naming it as such (the reader's wording speaks of board files). */
@@ -21,14 +25,23 @@ async function readFigures(path: string, io: CliIo): Promise<string> {
 export async function runCheck(boardFile: string, figuresFile: string, options: CheckCommandOptions, io: CliIo): Promise<HandCheckResult> {
   const spec = parseBoard(readBoardText(await io.readSource(boardFile)));
   const figures = readBoardText(await readFigures(figuresFile, io));
+  if (options.diagram) assertNotInput([options.diagram], [boardFile, figuresFile]);
+  const board = normaliseBoard(spec);
   let result: HandCheckResult;
   try {
-    result = checkHandFigures(normaliseBoard(spec), figures);
+    result = checkHandFigures(board, figures);
   } catch (error) {
     // Say which file the problems are in: the board file has already been checked.
     if (error instanceof InputError) throw new InputError(error.issues, `the hand figures in "${figuresFile}" are not valid`);
     throw error;
   }
-  io.stdout(options.json ? `${JSON.stringify(result, null, 2)}\n` : renderHandCheckReport(result));
+  if (options.diagram) {
+    const svg = renderCurrentTriangles(solveBoardModel(board, { openNeutral: false }), solveBoardModel(addHandCapacitors(board, figures), { openNeutral: false }), {
+      title: 'Line current triangles — without and with your capacitors',
+      changeName: 'your capacitors',
+    });
+    writeOutputFile(options.diagram, svg);
+  }
+  writeResult(io, result, options.json, renderHandCheckReport);
   return result;
 }

@@ -24,7 +24,7 @@ export async function runDiagram(file: string, options: DiagramCommandOptions, i
     if (!spec.correction?.arrangement)
       throw new UsageError(`the ${view === 'triangles' ? 'triangles view' : '--with-correction option'} needs a correction study: add a "correction:" section with an arrangement to the board file (see trivar correct --help)`);
     const v = correctBoard(board, spec.correction).verification;
-    svg = view === 'triangles' ? renderCurrentTriangles(v.before, v.after) : view === 'sequence' ? renderSequenceDiagram(v.after) : renderPhasorDiagram(v.before, { after: v.after });
+    svg = view === 'triangles' ? renderCurrentTriangles(v.before, v.after) : view === 'sequence' ? renderSequenceDiagram(v.after, { title: 'Symmetrical components with the correction in place' }) : renderPhasorDiagram(v.before, { after: v.after });
   } else {
     const result = solveBoardModel(board);
     if (view === 'sequence' && !result.sequences) throw new UsageError(`the sequence view needs a three-phase board; this one is ${result.board.system}`);

@@ -44,6 +44,9 @@ function sizingTable(branches: readonly BranchSizing[]): string {
   );
 }
 
+/** The branches of a step, short: a three-branch step by its connection. */
+const branchWords = (s: BankStep) =>
+  s.branches.length === 3 ? (s.branches[0]!.endsWith('-N') ? 'ABC star-N' : s.branches[0]!.endsWith('-star') ? 'ABC star' : 'ABC delta') : s.branches.join(' ');
 const unitWords = (s: BankStep) => `${s.unit.kind === 'three-phase' ? '3-ph' : '1-ph'} ${fixed(s.unit.ratedKvar, 2)} kvar ${fixed(s.unit.ratedV, 0)} V`;
 const partWords: Record<BankStep['part'], string> = { fixed: 'fixed', balanced: 'equal', trim: 'trim', single: 'single' };
 
@@ -63,7 +66,7 @@ function stepsTable(sel: BankSelection): string {
     sel.steps.map((s) => [
       s.output === null ? '-' : String(s.output),
       partWords[s.part],
-      s.branches.join(' '),
+      branchWords(s),
       String(s.units),
       unitWords(s),
       fixed(s.nameplateKvar, 2),
@@ -197,6 +200,14 @@ function checksBlock(v: CorrectionVerification): string {
   return indentLines(out);
 }
 
+function balanceLine(r: CorrectionReport): string[] {
+  if (r.sizing.arrangement !== 'balancing-compensator' || !r.balance) return [];
+  const b = r.balance;
+  const t = b.target;
+  const neutral = t.maxNeutralPercent === null || b.neutralPercent === null ? '' : `, neutral ${fixed(b.neutralPercent, 1)} % of |I1| (target ≤ ${fixed(t.maxNeutralPercent, 0)} %)`;
+  return [`balance as built: |I2|/|I1| ${fixed(b.negativeSequencePercent, 1)} % (target ≤ ${fixed(t.maxNegativeSequencePercent, 0)} %)${neutral} — ${b.met ? 'met' : 'NOT met'}`];
+}
+
 function compensatorBlock(c: CompensatorSizing, ideal: CorrectionVerification | null): string {
   const res = (label: string, s: CompensatorSizing['ideal']) =>
     `${label}: |I2|/|I1| ${fixed(s.residual.negativeSequenceCurrentPercent, 2)} %, |I0|/|I1| ${fixed(s.residual.zeroSequenceCurrentPercent, 2)} %` +
@@ -212,6 +223,11 @@ function compensatorBlock(c: CompensatorSizing, ideal: CorrectionVerification | 
     indentLines(['best capacitor-only solution (least remaining unbalance and reactive error, no line made to lead):']),
     sizingTable(c.capacitorOnly.branches),
     indentLines([res('capacitor-only residual', c.capacitorOnly)]),
+    indentLines([
+      c.recommended === 'ideal'
+        ? 'built: the ideal solution (capacitors from units, reactors as sized), because capacitors alone miss the target'
+        : 'built: the capacitor-only solution',
+    ]),
   ]
     .filter((l) => l !== '')
     .join('\n');
@@ -231,6 +247,7 @@ export function renderCorrectionReport(r: CorrectionReport): string {
     '',
     wrapText(`${STATUS_WORDS[r.status] ?? r.status} — ${r.summary}`, '', '  '),
     ...r.reasons.map((x) => wrapText(x, '  - ', '    ')),
+    ...balanceLine(r).map((x) => wrapText(x, '  ', '    ')),
   ];
   if (r.sizing.arrangement === 'balancing-compensator') parts.push(section('Compensator sizing') + compensatorBlock(r.sizing, r.idealVerification));
   else {

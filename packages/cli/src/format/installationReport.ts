@@ -2,6 +2,9 @@
 import type { InstallationResult } from '@trivar/core';
 import { fixed, renderTable, section } from './textTable.js';
 import { renderSolveReport } from './solveReport.js';
+import { REPORT_WIDTH, wrapText } from './wrapText.js';
+
+const note = (text: string) => `${wrapText(text, '  (', '   ', REPORT_WIDTH - 1)})`;
 
 const SYSTEM_WORDS: Record<string, string> = {
   'three-phase-4wire': 'three-phase 4-wire',
@@ -54,7 +57,6 @@ function feederTable(r: InstallationResult): string {
     ...(f.neutral ? [f.neutral.open ? 'open' : fixed(f.neutral.current.magnitude, 1)] : []),
     fixed(f.voltageDropPercent, 2),
     fixed(f.lossesKW, 3),
-    f.description ?? '',
   ]);
   const hasNeutral = r.feeders[0]?.neutral !== null;
   return renderTable(
@@ -65,10 +67,14 @@ function feederTable(r: InstallationResult): string {
       ...(hasNeutral ? [{ header: 'N A' }] : []),
       { header: 'drop %' },
       { header: 'loss kW' },
-      { header: 'cable', align: 'left' as const },
     ],
     rows,
   );
+}
+
+function cableList(r: InstallationResult): string {
+  const lines = r.feeders.filter((f) => f.description).map((f) => wrapText(`${f.board}: ${f.description}`, '  cable to ', '    '));
+  return lines.length ? `\n${lines.join('\n')}` : '';
 }
 
 export interface InstallationReportOptions {
@@ -80,12 +86,15 @@ export function renderInstallationReport(r: InstallationResult, options: Install
   const first = r.boards[0]!.result.board;
   const volts = first.nominalLineToLineV ? `${fixed(first.nominalLineToLineV, 0)}/${fixed(first.nominalLineToNeutralV, 0)} V` : `${fixed(first.nominalLineToNeutralV, 0)} V`;
   const t = r.totals;
-  const warnings = r.boards.flatMap((b) => b.result.warnings.map((w) => `  ! ${b.name}: ${w.message}`));
+  const warnings = r.boards.flatMap((b) => b.result.warnings.map((w) => wrapText(`${b.name}: ${w.message}`, '  ! ')));
   const cautions = [...new Set(r.boards.flatMap((b) => b.result.cautions))];
   const parts = [
     [r.installation.name, `${SYSTEM_WORDS[r.installation.system] ?? r.installation.system} · ${volts} · ${first.frequencyHz} Hz · ${r.installation.boardCount} boards`].join('\n'),
-    section('Boards (own = this board\'s circuits; fed = what its feeder delivers, boards beyond included)') + boardTable(r),
-    section('Feeders (drop: |V| at the sending end minus |V| at the board, worst phase, % of nominal; the service feeder counts from the source EMF)') + feederTable(r),
+    section('Boards') + boardTable(r) + `\n${note("own: this board's circuits; fed: what its feeder delivers, boards beyond it included.")}`,
+    section('Feeders') +
+      feederTable(r) +
+      `\n${note('drop: |V| at the sending end minus |V| at the board, worst phase, % of nominal; for the service feeder, from the source EMF.')}` +
+      cableList(r),
     section('Installation') +
       [
         `  loads       ${fixed(t.loadKW, 3)} kW  ${fixed(t.loadKvar, 3)} kvar`,
@@ -99,6 +108,7 @@ export function renderInstallationReport(r: InstallationResult, options: Install
     const board = r.boards.find((b) => b.name === name)!;
     parts.push(section(`━━ ${name}${board.fedFrom ? ` (fed from ${board.fedFrom})` : ''} ━━`) + renderSolveReport(board.result).trimEnd());
   }
-  if (options.detailed.length === 0) parts.push(section('Notes') + ['  * Full figures of one board: --board "<name>"; of every board: --all-boards; everything as data: --json.', ...cautions.map((c) => `  * ${c}`)].join('\n'));
+  if (options.detailed.length === 0)
+    parts.push(section('Notes') + ['Full figures of one board: --board "<name>"; of every board: --all-boards; everything as data: --json.', ...cautions].map((c) => wrapText(c, '  * ')).join('\n'));
   return `${parts.join('\n')}\n`;
 }

@@ -1,6 +1,9 @@
 /** BoardResult → the human-readable report of `trivar solve`. */
-import { OPEN_NEUTRAL_METHOD as OPEN_NEUTRAL_METHOD_TEXT, type BoardResult, type OpenNeutralLoadReading, type OpenNeutralStudy, type PowerReading } from '@trivar/core';
-import { fixed, renderTable, section, wrapParagraph } from './textTable.js';
+import type { BoardResult } from '@trivar/core';
+import { fixed, renderTable, renderTableWithin, section } from './textTable.js';
+import { REPORT_WIDTH, wrapText } from './wrapText.js';
+import { exportSentence, isExport, pfCell, varWords } from './powerFlowWords.js';
+import { openNeutralBlock } from './openNeutralReport.js';
 
 const SYSTEM_WORDS: Record<string, string> = {
   'three-phase-4wire': 'three-phase 4-wire',
@@ -9,10 +12,16 @@ const SYSTEM_WORDS: Record<string, string> = {
   'single-phase': 'single-phase 2-wire',
 };
 
-function pfText(r: Pick<PowerReading, 'pf' | 'sense' | 'kVA'>): string {
-  if (r.kVA === 0) return '-';
-  const sense = r.sense === 'lagging' ? ' lag' : r.sense === 'leading' ? ' lead' : '';
-  return `${fixed(r.pf, 3)}${sense}`;
+/** A note in brackets under a table, wrapped to the report width. */
+const note = (text: string) => `${wrapText(text, '  (', '   ', REPORT_WIDTH - 1)})`;
+
+/** Short model names for the circuits table; the key under it spells them out. */
+const MODEL_SHORT: Record<string, string> = { 'constant-power': 'P', 'constant-current': 'I', 'constant-impedance': 'Z', zip: 'ZIP' };
+
+/** The voltage-drop definition, the same one `voltageDropPercent` uses everywhere. */
+function dropDefinition(r: BoardResult): string {
+  const to = r.neutral ? 'phase to the board neutral bar, so the neutral conductor\'s drop is included' : 'phase to the virtual neutral, the centroid of the line voltages';
+  return `drop: open-circuit source voltage minus the voltage line-to-neutral loads see — ${to} — in % of nominal; negative is a rise.`;
 }
 
 export function headerLines(r: BoardResult): string[] {
@@ -22,9 +31,8 @@ export function headerLines(r: BoardResult): string[] {
     : `${fixed(b.nominalLineToNeutralV, 0)} V`;
   const seq = b.system.startsWith('three') ? ` · sequence ${b.sequence}` : '';
   return [
-    b.name,
+    wrapText(b.name, ''),
     `${SYSTEM_WORDS[b.system] ?? b.system} · ${volts} · ${b.frequencyHz} Hz${seq}${b.neutralOpen ? ' · NEUTRAL OPEN' : ''}`,
-    `solved in ${r.solve.iterations} iteration${r.solve.iterations === 1 ? '' : 's'}`,
   ];
 }
 
@@ -34,11 +42,12 @@ function phaseTable(r: BoardResult): string {
     fixed(p.voltage.magnitude, 1),
     fixed(p.voltage.angleDeg, 1),
     fixed(p.voltagePercent, 1),
+    fixed(p.voltageDropPercent, 1),
     fixed(p.current.magnitude, 1),
     fixed(p.current.angleDeg, 1),
     fixed(p.kW, 2),
     fixed(p.kvar, 2),
-    pfText(p),
+    pfCell(p),
     p.loadingPercent === null ? '' : fixed(p.loadingPercent, 0),
   ]);
   if (r.neutral)
@@ -46,6 +55,7 @@ function phaseTable(r: BoardResult): string {
       'N',
       r.neutral.barVoltage ? fixed(r.neutral.barVoltage.magnitude, 1) : '',
       r.neutral.barVoltage ? fixed(r.neutral.barVoltage.angleDeg, 1) : '',
+      '',
       '',
       fixed(r.neutral.current.magnitude, 1),
       fixed(r.neutral.current.angleDeg, 1),
@@ -60,6 +70,7 @@ function phaseTable(r: BoardResult): string {
       { header: 'V' },
       { header: '∠V°' },
       { header: '%nom' },
+      { header: 'drop' },
       { header: 'A' },
       { header: '∠I°' },
       { header: 'kW' },
@@ -70,12 +81,15 @@ function phaseTable(r: BoardResult): string {
     rows,
   );
   const ll = r.lineToLine.map((l) => `${l.pair} ${fixed(l.voltage.magnitude, 1)} V (${fixed(l.voltagePercent, 1)} %)`).join('   ');
-  const notes: string[] = [];
+  const notes = [dropDefinition(r)];
   if (r.neutral) notes.push('N row: neutral bar voltage to the source star point, and the neutral current.');
   if (r.loads.some((l) => /^[ABC]-[ABC]$|delta/.test(l.connection)))
     notes.push('Line-to-line loads split their power unevenly between their two lines: one line leads, the other lags.');
-  const note = notes.map((n) => `\n  (${n})`).join('');
-  return table + note + (ll ? `\n  line-to-line: ${ll}` : '');
+  for (const p of r.phases) {
+    const sentence = exportSentence(`Line ${p.phase}`, p, 'exports');
+    if (sentence) notes.push(sentence);
+  }
+  return [table, ...notes.map(note), ...(ll ? [`  line-to-line: ${ll}`] : [])].join('\n');
 }
 
 function loadTable(r: BoardResult): string {
@@ -84,16 +98,27 @@ function loadTable(r: BoardResult): string {
     return [
       l.name,
       l.connection,
-      l.model,
+      MODEL_SHORT[l.model] ?? l.model,
       l.energised ? fixed(worst.voltage.magnitude, 1) : 'dead',
       l.energised ? fixed(worst.voltagePercent, 1) : '',
       fixed(l.currentA, 1),
       fixed(l.kW, 2),
       fixed(l.kvar, 2),
-      `${pfText(l)}${l.pfAssumed ? ' *' : ''}`,
+      `${pfCell(l)}${l.pfAssumed ? ' *' : ''}`,
     ];
   });
-  return renderTable(
+  const notes = ['model: P constant power, I constant current, Z constant impedance, ZIP a mix · V: the worst branch voltage.'];
+  const asDelta = r.loads.filter(solvedAsEquivalentDelta).map((l) => `"${l.name}"`);
+  if (asDelta.length)
+    notes.push(
+      `${asDelta.join(', ')}: a floating star of constant-power or constant-current elements has no unique star-point position, so it is solved as its equivalent delta (its rating shared by the three line-to-line pairs; V is line-to-line). Rate it in ohms or as constant-impedance to see its star point.`,
+    );
+  if (r.loads.some((l) => l.pfAssumed)) notes.push('*: pf not given in the file, taken as 1 (a resistive load).');
+  for (const l of r.loads) {
+    const sentence = exportSentence(`"${l.name}"`, l, 'generates');
+    if (sentence) notes.push(sentence);
+  }
+  return [renderTableWithin(
     [
       { header: 'circuit', align: 'left' },
       { header: 'on', align: 'left' },
@@ -106,8 +131,12 @@ function loadTable(r: BoardResult): string {
       { header: 'PF', align: 'left' },
     ],
     rows,
-  ) + (r.loads.some((l) => l.pfAssumed) ? '\n  (* pf not given in the file: taken as 1, a resistive load)' : '');
+  ), ...notes.map(note)].join('\n');
 }
+
+/** A star load whose branches run line to line: core solved it as its equivalent delta. */
+const solvedAsEquivalentDelta = (l: BoardResult['loads'][number]) =>
+  l.connection === 'ABC-star' && l.branches.every((b) => b.from !== 'N' && b.to !== 'N' && b.from !== 'star' && b.to !== 'star');
 
 function sequenceBlock(r: BoardResult): string {
   if (!r.sequences || !r.unbalance) return '  (symmetrical components apply to three-phase boards only)';
@@ -147,53 +176,16 @@ function powerFactorBlock(r: BoardResult): string {
 
 function powerBlock(r: BoardResult): string {
   const l = r.losses;
+  const generating = r.loads.some((load) => isExport(load.kW));
+  const supply = fixed(r.source.kW, 3).startsWith('-')
+    ? `  ${'to the supply'.padEnd(16)} ${fixed(-r.source.kW, 3)} kW exported; the board ${varWords(r.source.kvar, 3)}`
+    : `  ${'from the supply'.padEnd(16)} ${fixed(r.source.kW, 3)} kW, ${fixed(r.source.kvar, 3)} kvar`;
+  const row = (label: string, text: string) => `  ${label.padEnd(16)} ${text}`;
   return [
-    `  loads      ${fixed(r.totals.kW, 3)} kW  ${fixed(r.totals.kvar, 3)} kvar`,
-    `  losses     ${fixed(l.totalKW, 3)} kW  (source ${fixed(l.sourceKW, 3)}, line conductors ${fixed(l.lineFeederKW, 3)}, neutral ${fixed(l.neutralKW, 3)})`,
-    `  from source ${fixed(r.source.kW, 3)} kW  ${fixed(r.source.kvar, 3)} kvar`,
-  ].join('\n');
-}
-
-function openNeutralBlock(study: OpenNeutralStudy): string {
-  if (!study.applicable) return wrapParagraph(`not applicable: ${study.note ?? ''}`, '  ');
-  const other = study.otherStates[0];
-  const impedance = study.impedanceModel;
-  const flagWord = (f: OpenNeutralLoadReading['flag']) => (f === 'ok' ? '' : f === 'over' ? 'OVER' : 'under');
-  const rows = study.loads.map((l, k) => [
-    l.name,
-    l.phase,
-    `${fixed(l.voltage, 1)}${l.belowLowVoltageRule ? '*' : ''}`,
-    fixed(l.voltagePercent, 1),
-    flagWord(l.flag),
-    ...(impedance ? [fixed(impedance.loads[k]!.voltage, 1), fixed(impedance.loads[k]!.voltagePercent, 1)] : []),
-    ...(other ? [fixed(other.loads[k]!.voltage, 1), fixed(other.loads[k]!.voltagePercent, 1)] : []),
-  ]);
-  const table = renderTable(
-    [
-      { header: 'circuit', align: 'left' },
-      { header: 'phase', align: 'left' },
-      { header: 'V' },
-      { header: '%nom' },
-      { header: '', align: 'left' },
-      ...(impedance ? [{ header: 'V if Z' }, { header: '%nom' }] : []),
-      ...(other ? [{ header: 'V alt' }, { header: '%nom' }] : []),
-    ],
-    rows,
-  );
-  const key = [
-    study.reachedFromIntact ? 'V: the state the board reaches' : 'V: the worst state found',
-    ...(impedance ? ['V if Z: every load as a constant impedance'] : []),
-    ...(other ? ['V alt: another solution of the same equations'] : []),
-    ...(study.loads.some((l) => l.belowLowVoltageRule) ? ['*: below the low-voltage rule, taken as an impedance'] : []),
-  ];
-  const bar = study.barVoltage ? `  neutral bar floats to ${fixed(study.barVoltage.magnitude, 1)} V from the source star point` : '';
-  return [
-    wrapParagraph(OPEN_NEUTRAL_METHOD_TEXT, '  '),
-    ...(bar ? [bar] : []),
-    table,
-    wrapParagraph(key.join(' · '), '  (', '   ').concat(')'),
-    ...study.findings.map((f) => wrapParagraph(f, '  ! ')),
-    ...study.cautions.map((c) => wrapParagraph(c, '  ! ')),
+    row(generating ? 'loads (net)' : 'loads', `${fixed(r.totals.kW, 3)} kW, ${fixed(r.totals.kvar, 3)} kvar`),
+    row('losses', `${fixed(l.totalKW, 3)} kW (source ${fixed(l.sourceKW, 3)}, line conductors ${fixed(l.lineFeederKW, 3)}, neutral ${fixed(l.neutralKW, 3)})`),
+    supply,
+    ...(generating ? [note('loads (net): consumption minus generation, load convention (+kW consumed, +kvar absorbed).')] : []),
   ].join('\n');
 }
 
@@ -201,13 +193,13 @@ export function renderSolveReport(r: BoardResult): string {
   const parts = [
     headerLines(r).join('\n'),
     section('At the board') + phaseTable(r),
-    section('Circuits (worst branch voltage)') + loadTable(r),
+    section('Circuits') + loadTable(r),
     section('Symmetrical components and unbalance') + sequenceBlock(r),
     section('Apparent power and power factor') + powerFactorBlock(r),
     section('Power balance') + powerBlock(r),
   ];
   if (r.openNeutral) parts.push(section('If the neutral conductor broke') + openNeutralBlock(r.openNeutral));
-  parts.push(section('Warnings') + (r.warnings.length ? r.warnings.map((w) => `  ! ${w.message}`).join('\n') : '  none'));
-  parts.push(section('Notes') + r.cautions.map((c) => `  * ${c}`).join('\n'));
+  parts.push(section('Warnings') + (r.warnings.length ? r.warnings.map((w) => wrapText(w.message, '  ! ')).join('\n') : '  none'));
+  parts.push(section('Notes') + r.cautions.map((c) => wrapText(c, '  * ')).join('\n'));
   return `${parts.join('\n')}\n`;
 }

@@ -23,6 +23,9 @@ function expectedFor(issue: core.$ZodIssue): string {
       return `a number ${issue.inclusive ? '<=' : '<'} ${String(issue.maximum)}`;
     case 'unrecognized_keys':
       return 'only the documented keys (see the board JSON Schema)';
+    case 'invalid_union':
+      // Each alternative says what it takes: "one of "a", "b" or a list".
+      return issue.errors.map((alternative) => (alternative[0] ? expectedFor(alternative[0]) : '')).filter(Boolean).join(' or ') || issue.message;
     default:
       return issue.message;
   }
@@ -40,23 +43,28 @@ function valueAt(root: unknown, path: readonly PropertyKey[]): unknown {
 export function inputIssuesFromZod(issues: readonly core.$ZodIssue[], root: unknown, prefix: readonly PropertyKey[] = []): InputIssue[] {
   return issues.flatMap((issue) => {
     const path = [...prefix, ...issue.path];
-    // A value that fits none of a union's forms: report the form it came closest to
-    // (fewest problems, and not one whose very keys or type are wrong).
+    // An object that fits none of a union's forms but has the shape of one of them (its
+    // problems are all inside, e.g. a negative resistance): report that form's problems at
+    // their own paths. A value of the wrong kind altogether gets "one of … or …" below.
     if (issue.code === 'invalid_union' && issue.errors.length > 0) {
-      const score = (branch: readonly core.$ZodIssue[]) =>
-        branch.length + 100 * branch.filter((i) => i.path.length === 0 && (i.code === 'unrecognized_keys' || i.code === 'invalid_type')).length;
-      const closest = [...issue.errors].sort((a, b) => score(a) - score(b))[0]!;
-      return inputIssuesFromZod(closest, valueAt(root, issue.path), path);
+      const inside = issue.errors.filter((branch) => branch.length > 0 && branch.every((i) => i.path.length > 0));
+      const closest = inside.sort((a, b) => a.length - b.length)[0];
+      if (closest) return inputIssuesFromZod(closest, valueAt(root, issue.path), path);
     }
     if (issue.code === 'unrecognized_keys')
       return issue.keys.map((key) => inputIssue('unknown_key', formatPath([...path, key]), 'only the documented keys (see the board JSON Schema)', key));
-    const received = valueAt(root, issue.path);
-    const code =
-      (issue.code === 'invalid_type' || issue.code === 'invalid_value') && received === undefined
+    // A refinement may report a value of its own in params.received (a spectrum's total, not the list).
+    const received = issue.code === 'custom' && issue.params?.received !== undefined ? (issue.params.received as unknown) : valueAt(root, issue.path);
+    // A refinement names its own code in params.code (`duplicate`, `not_integer`...).
+    const own = issue.code === 'custom' && typeof issue.params?.code === 'string' ? (issue.params.code as string) : null;
+    const code = own ??
+      ((issue.code === 'invalid_type' || issue.code === 'invalid_value') && received === undefined
         ? 'missing'
         : issue.code === 'too_small' || issue.code === 'too_big'
           ? 'out_of_range'
-          : issue.code;
+          : issue.code === 'invalid_union'
+            ? 'invalid_value'
+            : issue.code);
     return [inputIssue(code, formatPath(path), expectedFor(issue), received)];
   });
 }

@@ -34,7 +34,7 @@ function boardVoltages(solution: NetworkSolution) {
   return { bus, neutralBar, phase: bus.map((v) => sub(v, reference)) };
 }
 
-function readPhases(solution: NetworkSolution, bus: readonly ComplexValue[], phaseVoltages: readonly ComplexValue[]): PhaseReading[] {
+function readPhases(solution: NetworkSolution, phaseVoltages: readonly ComplexValue[]): PhaseReading[] {
   const { board } = solution;
   const ln = board.nominalLineToNeutralV;
   return board.phases.map((phase, k) => {
@@ -47,7 +47,8 @@ function readPhases(solution: NetworkSolution, bus: readonly ComplexValue[], pha
       current: toPhasor(i),
       ...powerReading(mul(v, conj(i))),
       loadingPercent: board.lineRatingA ? (100 * abs(i)) / board.lineRatingA : null,
-      voltageDropPercent: (100 * (abs(board.emf[k]!) - abs(bus[k]!))) / ln,
+      // What line-to-neutral loads lose: to the neutral bar, so the neutral conductor's drop counts too.
+      voltageDropPercent: (100 * (abs(board.emf[k]!) - abs(v))) / ln,
     };
   });
 }
@@ -127,7 +128,7 @@ export function analyseSolution(solution: NetworkSolution): BoardResult {
   const { board } = solution;
   const threePhase = isThreePhase(board.system);
   const voltages = boardVoltages(solution);
-  const phases = readPhases(solution, voltages.bus, voltages.phase);
+  const phases = readPhases(solution, voltages.phase);
   const lineToLine = readLineToLine(solution, voltages.bus);
   const neutral = readNeutral(solution, voltages.neutralBar);
   const loads = readLoads(solution, voltages.bus);

@@ -32,7 +32,11 @@ export interface PhaseReading extends PowerReading {
   readonly current: Phasor;
   /** Line current as % of the line conductor rating; null without a rating. */
   readonly loadingPercent: number | null;
-  /** Drop from the open-circuit EMF to the board voltage, % of nominal (magnitudes). */
+  /**
+   * Voltage drop, % of nominal: |open-circuit EMF| − |`voltage`|, the voltage line-to-neutral
+   * loads see (to the neutral bar on a 4-wire board, so the neutral conductor's drop is
+   * included; to the virtual neutral on a 3-wire board). The one drop figure trivar reports.
+   */
   readonly voltageDropPercent: number;
 }
 

@@ -43,14 +43,16 @@ export interface NeutralBreakPath {
 }
 
 /** Span of the fault resistance, as powers of ten of the board's load impedance. */
-const FIRST_DECADE = -4;
-const LAST_DECADE = 4;
+const FIRST_DECADE = -3;
+const LAST_DECADE = 3;
 /** Step sizes in decades of fault resistance: start, largest, and the floor below which the state counts as lost. */
 const STEP = { start: 0.25, largest: 1, floor: 1e-3 } as const;
 /** A step may move no node by more than this fraction of nominal: larger means it jumped to another state. */
 const LARGEST_MOVE = 0.05;
 /** A Newton solve needing more iterations than this is too close to a fold to trust as "the same state". */
-const ITERATIONS_PER_STEP = 20;
+const ITERATIONS_PER_STEP = 6;
+/** Intermediate states need only be close enough to start the next step from; the open-neutral state is solved to full accuracy. */
+const STEP_TOLERANCE = 1e-7;
 
 /** The board with a fault resistance added in series with its neutral conductor (or the neutral open when `ohms` is null). */
 export function withNeutralFault(board: Board, ohms: number | null): Board {
@@ -81,7 +83,7 @@ function largestMove(a: NetworkSolution, b: NetworkSolution, vBase: number): num
  */
 export function followNeutralBreak(board: Board, options: FollowNeutralBreakOptions = {}): NeutralBreakPath {
   const lowVoltageThreshold = options.lowVoltageThreshold ?? 0.7;
-  const newton = { lowVoltageThreshold, maxIterations: ITERATIONS_PER_STEP };
+  const stepNewton = { lowVoltageThreshold, maxIterations: ITERATIONS_PER_STEP, tolerance: STEP_TOLERANCE };
   const vBase = board.nominalLineToNeutralV;
   const zScale = loadImpedanceScale(board);
   // The intact board (a negligible fault, so the neutral bar is a node of its own as in every later step).
@@ -91,7 +93,7 @@ export function followNeutralBreak(board: Board, options: FollowNeutralBreakOpti
   let steps = 0;
   while (decade < LAST_DECADE) {
     const next = Math.min(LAST_DECADE, decade + step);
-    const out = solveNetworkByNewton(withNeutralFault(board, zScale * 10 ** next), state.nodeVoltages, newton);
+    const out = solveNetworkByNewton(withNeutralFault(board, zScale * 10 ** next), state.nodeVoltages, stepNewton);
     if (out.converged && largestMove(out.solution, state, vBase) <= LARGEST_MOVE) {
       decade = next;
       state = out.solution;
@@ -102,7 +104,7 @@ export function followNeutralBreak(board: Board, options: FollowNeutralBreakOpti
       if (step < STEP.floor) return { reachedOpen: false, lostAtOhms: zScale * 10 ** decade, state, stateAtOhms: zScale * 10 ** decade, steps };
     }
   }
-  const open = solveNetworkByNewton(withNeutralFault(board, null), state.nodeVoltages, newton);
+  const open = solveNetworkByNewton(withNeutralFault(board, null), state.nodeVoltages, { lowVoltageThreshold });
   if (open.converged && largestMove(open.solution, state, vBase) <= LARGEST_MOVE)
     return { reachedOpen: true, lostAtOhms: null, state: open.solution, stateAtOhms: null, steps: steps + 1 };
   return { reachedOpen: false, lostAtOhms: null, state, stateAtOhms: zScale * 10 ** decade, steps };

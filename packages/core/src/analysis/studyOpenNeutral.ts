@@ -119,7 +119,7 @@ export function studyOpenNeutral(board: Board, options?: SolveOptions): OpenNeut
   }
   const impedance = trySolve(() => solveNetwork(allImpedance(open)));
   const direct = trySolve(() => solveNetwork(open, options));
-  const states = openStates(open, [path.reachedOpen ? path.state : null, impedance, direct, path.state], threshold);
+  const states = openStates(open, [path.reachedOpen ? path.state : null, impedance, direct, path.reachedOpen ? null : path.state], threshold);
   const reachedSolution = path.reachedOpen
     ? path.state
     : states.map((s) => ({ s, high: readState(board, s, threshold).highestPercent })).sort((a, b) => b.high - a.high)[0]?.s;

@@ -223,6 +223,26 @@ function loadIssues(loads: readonly (LoadSpec | undefined)[], system: SystemKind
   return issues;
 }
 
+/**
+ * Harmonic fields of a load: a spectrum makes it a current source at harmonic
+ * orders, so a linear form does not apply; a floating star of fixed impedance
+ * keeps its own star point, which current sources alone would leave undefined.
+ */
+function ruleHarmonicFields(board: BoardSpec): InputIssue[] {
+  const issues: InputIssue[] = [];
+  board.loads.forEach((load, i) => {
+    const path = `loads[${i}]`;
+    if (load.spectrum === undefined || load.spectrum === 'linear') return;
+    if (load.linearForm !== undefined)
+      issues.push(inputIssue('conflict', `${path}.linearForm`, 'linearForm only on loads without a spectrum (a non-linear load is a current source at harmonic orders)', load.linearForm));
+    const floating = load.connection === 'ABC-star' && (load.starPoint === 'floating' || !systemHasNeutral(board.supply.system));
+    const fixedImpedance = load.ohms !== undefined || load.model === 'constant-impedance' || load.zip?.z === 1;
+    if (floating && fixedImpedance)
+      issues.push(inputIssue('not_applicable', `${path}.spectrum`, 'a spectrum on ABC-delta loads or stars tied to the neutral (describe a floating-star non-linear load as ABC-delta)', 'a floating star'));
+  });
+  return issues;
+}
+
 function ruleLoads(board: BoardSpec): InputIssue[] {
   return loadIssues(board.loads, board.supply.system);
 }
@@ -251,4 +271,4 @@ export function partialBoardIssues(parts: BoardParts): InputIssue[] {
   return issues;
 }
 
-export const BOARD_RULES: readonly Rule[] = [ruleVoltageGiven, ruleSourceImpedance, ruleUnequalSource, ruleEmfPhases, ruleFeeder, ruleLoads];
+export const BOARD_RULES: readonly Rule[] = [ruleVoltageGiven, ruleSourceImpedance, ruleUnequalSource, ruleEmfPhases, ruleFeeder, ruleLoads, ruleHarmonicFields];

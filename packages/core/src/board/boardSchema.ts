@@ -7,6 +7,7 @@
  */
 import * as z from 'zod';
 import { correctionSpecSchema } from '../correction/correctionSpec.js';
+import { harmonicsSectionSchema, linearFormSchema, spectrumSchema } from '../harmonics/harmonicsSpec.js';
 import { rebalanceSpecSchema } from '../rebalance/rebalanceSpec.js';
 
 const nonNegative = z.number().nonnegative();
@@ -177,6 +178,8 @@ export const loadSchema = z.strictObject({
     .strictObject({ z: nonNegative.max(1), i: nonNegative.max(1), p: nonNegative.max(1) })
     .optional()
     .describe('ZIP fractions of constant impedance, current and power; must sum to 1'),
+  spectrum: spectrumSchema.optional().describe('harmonic currents of a non-linear load: a built-in typical spectrum or a list; default none (linear)'),
+  linearForm: linearFormSchema.optional().describe('for a linear load at harmonic orders: series R + jX or parallel R ‖ jX; default from harmonics.linearForm (parallel); ohms loads keep series'),
 });
 
 export const studiesSchema = z
@@ -198,6 +201,7 @@ export const boardSchema = z
       .partial()
       .optional()
       .describe('a power-factor correction study for `trivar correct` (command-line options override it)'),
+    harmonics: harmonicsSectionSchema.optional(),
     rebalance: rebalanceSpecSchema.optional(),
   })
   .describe('a trivar board file');

@@ -8,8 +8,10 @@
 import type { Board } from '../board/boardModel.js';
 import type { Arrangement, CorrectionSpec } from './correctionSpec.js';
 import { InputError, inputIssue } from '../errors.js';
+import { kvarFromSusceptance, type EquipmentGroup } from './equipment.js';
 import { parseCorrectionSpec } from './validateCorrectionSpec.js';
 import { resolveTarget } from './correctionTarget.js';
+import { checkBalance } from './balanceTarget.js';
 import { sizeStarBank } from './sizeStarBank.js';
 import { sizeDeltaBank } from './sizeDeltaBank.js';
 import { sizeBalancingCompensator } from './sizeBalancingCompensator.js';
@@ -27,7 +29,16 @@ function sizeArrangement(board: Board, spec: CorrectionSpec & { arrangement: Arr
     case 'delta-bank':
       return sizeDeltaBank(board, definedOnly({ target: spec.target, share: spec.share }));
     case 'balancing-compensator':
-      return sizeBalancingCompensator(board, definedOnly({ target: spec.target, branches: spec.compensator?.branches, weights: spec.compensator?.weights }));
+      return sizeBalancingCompensator(
+        board,
+        definedOnly({
+          target: spec.target,
+          branches: spec.compensator?.branches,
+          reactors: spec.compensator?.reactors,
+          weights: spec.compensator?.weights,
+          balance: spec.balance,
+        }),
+      );
   }
 }
 
@@ -52,7 +63,16 @@ function starPointWarnings(sizing: BankSizing | CompensatorSizing, board: Board)
 }
 
 /** What gets built: a bank's sizing, or a compensator's capacitor-only solution. */
-const buildable = (sizing: BankSizing | CompensatorSizing): SizedEquipment => (sizing.arrangement === 'balancing-compensator' ? sizing.capacitorOnly : sizing);
+const buildable = (sizing: BankSizing | CompensatorSizing): SizedEquipment =>
+  sizing.arrangement === 'balancing-compensator' ? (sizing.recommended === 'ideal' ? sizing.ideal : sizing.capacitorOnly) : sizing;
+
+/** The reactors of the equipment as built, for the one-line summary. */
+function reactorWords(equipment: readonly EquipmentGroup[]): string {
+  const reactors = equipment.flatMap((g) => g.branches).filter((b) => b.susceptanceS < 0);
+  return reactors.length
+    ? `, with ${reactors.map((b) => `a ${Math.abs(kvarFromSusceptance(b.susceptanceS, b.vNominal)).toFixed(2)} kvar reactor on ${b.branch}`).join(' and ')}`
+    : '';
+}
 
 /**
  * Sizes, selects and verifies power-factor correction for a board.
@@ -112,6 +132,7 @@ export function correctBoard(board: Board, spec: unknown): CorrectionReport {
   const verification = verifyCorrection(board, verifyOptions(recommended));
   const idealVerification = sizing.arrangement === 'balancing-compensator' ? verifyCorrection(board, verifyOptions(sizing.ideal.equipment)) : null;
 
+  const balance = sizing.arrangement === 'balancing-compensator' ? checkBalance(verification.after, sizing.balance) : null;
   let status: CorrectionStatus;
   const reasons = [...sizing.reasons];
   if (sizing.status === 'already-meets-target') status = 'already-meets-target';
@@ -119,9 +140,9 @@ export function correctBoard(board: Board, spec: unknown): CorrectionReport {
   else if (selection?.unbuildable) {
     status = 'no-suitable-units';
     reasons.push(selection.unbuildable.message);
-  } else if (!verification.check.met) {
+  } else if (!verification.check.met || (balance && !balance.met)) {
     status = 'misses-target-with-available-units';
-    reasons.push(infeasibleReason.unitsMissTarget(verification.check.shortfalls));
+    reasons.push(infeasibleReason.unitsMissTarget([...verification.check.shortfalls, ...(balance?.shortfalls ?? [])]));
   } else if (!verification.tolerance.low.check.met || verification.tolerance.high.check.leadingLines.length > 0)
     status = 'meets-target-at-nominal-capacitance';
   else status = 'meets-target';
@@ -142,13 +163,14 @@ export function correctBoard(board: Board, spec: unknown): CorrectionReport {
   return {
     arrangement: parsed.arrangement,
     status,
-    summary: status === 'already-meets-target' ? reportSummary[status](what) : reportSummary[status](what, delivered, nameplate),
+    summary: (status === 'already-meets-target' ? reportSummary[status](what) : reportSummary[status](what, delivered, nameplate)) + reactorWords(recommended),
     reasons,
     target,
     sizing,
     selection,
     verification,
     idealVerification,
+    balance,
     warnings,
     cautions: CORRECTION_CAUTIONS,
   };

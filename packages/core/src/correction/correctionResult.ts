@@ -11,6 +11,7 @@ import type { BoardResult, PowerFactorSense } from '../analysis/boardResult.js';
 import type { Arrangement, Practice } from './correctionSpec.js';
 import type { EquipmentGroup } from './equipment.js';
 import type { ResolvedTarget, TargetCheck } from './correctionTarget.js';
+import type { BalanceCheck, BalanceTarget } from './balanceTarget.js';
 
 export interface CorrectionWarning {
   readonly code: string;
@@ -125,6 +126,12 @@ export interface CompensatorSizing {
   /** What the capacitor-only solution minimises, in words. */
   readonly objectiveStatement: string;
   readonly weights: { readonly negativeSequence: number; readonly zeroSequence: number; readonly reactive: number };
+  /** The unbalance the compensator must bring down to, and where the board is before and with the capacitor-only solution. */
+  readonly balance: BalanceTarget;
+  readonly balanceBefore: BalanceCheck;
+  readonly balanceAfter: BalanceCheck;
+  /** Which solution is built: the capacitor-only one, or (reactors allowed, capacitors not enough) the ideal one. */
+  readonly recommended: 'capacitor-only' | 'ideal';
   readonly ideal: CompensatorSolution;
   readonly capacitorOnly: CompensatorSolution;
   readonly status: SizingStatus;
@@ -360,6 +367,8 @@ export interface CorrectionReport {
   readonly verification: CorrectionVerification;
   /** Balancing compensator only: the ideal solution (with reactors), re-solved. */
   readonly idealVerification: CorrectionVerification | null;
+  /** Balancing compensator only: the unbalance of the board as built against the balance target. */
+  readonly balance: BalanceCheck | null;
   readonly warnings: readonly CorrectionWarning[];
   readonly cautions: readonly string[];
 }

@@ -95,6 +95,11 @@ function ruleCompensator(spec: CorrectionSpec, board: Board): InputIssue[] {
   return [];
 }
 
+function ruleBalance(spec: CorrectionSpec): InputIssue[] {
+  if (spec.balance === undefined || spec.arrangement === undefined || spec.arrangement === 'balancing-compensator') return [];
+  return [inputIssue('not_applicable', 'balance', 'balance targets only with arrangement balancing-compensator', 'balance')];
+}
+
 function ruleLightLoadNames(spec: CorrectionSpec, board: Board): InputIssue[] {
   const perLoad = spec.lightLoad?.perLoad;
   if (!perLoad) return [];
@@ -112,5 +117,6 @@ export const CORRECTION_RULES: readonly Rule[] = [
   ruleStarPoint,
   ruleShare,
   ruleCompensator,
+  ruleBalance,
   ruleLightLoadNames,
 ];

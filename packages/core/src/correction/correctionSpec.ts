@@ -91,6 +91,10 @@ export const compensatorSchema = z
       .enum(['delta', 'delta-and-star'])
       .optional()
       .describe('line-to-line branches only, or also line-to-neutral ones (4-wire only); default delta-and-star on a 4-wire board'),
+    reactors: z
+      .enum(['allowed', 'none'])
+      .optional()
+      .describe('allowed: where capacitors alone cannot balance the board, build the Steinmetz/Gyugyi solution with its reactors; none: capacitors only; default allowed'),
     weights: z
       .strictObject({
         negativeSequence: percent.optional().describe('weight of |I2|² (per unit); default 1'),

@@ -3,9 +3,15 @@
  * solved board against it (used by sizing, verification and the tests alike).
  *
  * Per line the target is a band on τ = Q/|P| (the signed tan φ of the line's
- * displacement angle, Q > 0 lagging): τ ≤ tan(acos pf) meets the minimum;
+ * displacement angle, Q > 0 lagging): τ ≤ tan(acos pf) meets the minimum (a
+ * lower bound on the PF: a line already better than it needs nothing);
  * τ ≥ τ_low keeps the line from leading (τ_low = 0), from leading beyond the
  * allowed leading PF (τ_low < 0), or from passing the upper lagging bound (τ_low > 0).
+ *
+ * "Never leading" is judged on what the equipment changes: given the board
+ * before correction, a line that already led there (a line-to-line load makes
+ * one of its two lines lead against the neutral, whatever is installed) passes
+ * as long as it does not lead more; a line that did not lead may not start to.
  */
 import type { Board, PhaseId } from '../board/boardModel.js';
 import type { BoardResult, PowerFactorSense } from '../analysis/boardResult.js';
@@ -27,6 +33,14 @@ export interface ResolvedTarget {
   readonly minLeadingPf: number | null;
   readonly maxLaggingPf: number | null;
 }
+
+/**
+ * A line that already led may lead more by this much of its active power
+ * (Δτ = 0.01): a bank on the other lines raises the voltage, so a line-to-line
+ * load leading on this line draws a hair more; that is not the bank making it
+ * lead (common practice, no source; a PF change well below 0.001 at 0.95).
+ */
+export const LEAD_MORE_TOLERANCE = 0.01;
 
 /** Relative slack when judging a computed figure against a bound (the sizing drives figures onto their bounds). */
 export const TARGET_SLACK = 1e-9;
@@ -104,8 +118,10 @@ export interface TargetCheck {
     readonly maxPf: number | null;
     readonly met: boolean;
   } | null;
-  /** Lines leading more than the target allows. */
+  /** Lines leading more than the target allows (more than before, where the board before is known). */
   readonly leadingLines: readonly PhaseId[];
+  /** Lines that already led before correction and are judged against how much they led then. */
+  readonly leadingBefore: readonly PhaseId[];
   /** One sentence per unmet condition. */
   readonly shortfalls: readonly string[];
 }
@@ -113,14 +129,27 @@ export interface TargetCheck {
 /** Lines whose apparent power is below this fraction of the largest are not judged. */
 const UNLOADED_FRACTION = 1e-6;
 
-/** Judges a solved board against a target. */
-export function checkTarget(result: BoardResult, target: ResolvedTarget): TargetCheck {
+/**
+ * Judges a solved board against a target.
+ * @param before the board before correction: lines that already passed their
+ *   lower τ bound there are held to that (not to lead more); omit to judge the
+ *   bound as written.
+ */
+export function checkTarget(result: BoardResult, target: ResolvedTarget, before?: BoardResult): TargetCheck {
   const largest = Math.max(...result.phases.map((p) => p.kVA), 0);
   const shortfalls: string[] = [];
   const leadingLines: PhaseId[] = [];
+  const leadingBefore: PhaseId[] = [];
   const lines = result.phases.map((p, k): LineTargetCheck => {
     const loaded = p.kVA > UNLOADED_FRACTION * largest && p.kVA > 1e-9;
-    const { high, low } = lineTanBounds(target, k);
+    const bounds = lineTanBounds(target, k);
+    const high = bounds.high;
+    let low = bounds.low;
+    const b = before?.phases[k];
+    if (b && b.kVA > UNLOADED_FRACTION * largest && b.kW !== 0 && b.kvar / Math.abs(b.kW) < low) {
+      low = b.kvar / Math.abs(b.kW) - LEAD_MORE_TOLERANCE;
+      leadingBefore.push(p.phase);
+    }
     const slack = TARGET_SLACK * p.kVA;
     const meetsMinimum = !loaded || high === Infinity || p.kvar <= high * Math.abs(p.kW) + slack;
     const withinUpperBound = !loaded || p.kvar >= low * Math.abs(p.kW) - slack;
@@ -128,7 +157,7 @@ export function checkTarget(result: BoardResult, target: ResolvedTarget): Target
     if (!meetsMinimum) shortfalls.push(targetShortfall.lineBelow(p.phase, p.pf, p.sense, minPf ?? target.pf));
     if (!withinUpperBound) {
       if (p.kvar < 0) leadingLines.push(p.phase);
-      shortfalls.push(targetShortfall.lineBeyond(p.phase, p.pf, p.sense, target));
+      shortfalls.push(leadingBefore.includes(p.phase) ? targetShortfall.lineLeadsMore(p.phase, p.pf, b!.pf) : targetShortfall.lineBeyond(p.phase, p.pf, p.sense, target));
     }
     return { phase: p.phase, pf: p.pf, sense: p.sense, loaded, minPf, meetsMinimum, withinUpperBound };
   });
@@ -142,5 +171,5 @@ export function checkTarget(result: BoardResult, target: ResolvedTarget): Target
     board = { definition: target.definition, pf, minPf: target.pf, maxPf: target.maxLaggingPf, met: reached && notPast };
   }
   const met = lines.every((l) => l.meetsMinimum && l.withinUpperBound) && (board?.met ?? true);
-  return { met, lines, board, leadingLines, shortfalls };
+  return { met, lines, board, leadingLines, leadingBefore, shortfalls };
 }

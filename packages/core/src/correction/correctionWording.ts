@@ -15,6 +15,16 @@ interface TargetWords {
 }
 
 const f3 = (x: number) => x.toFixed(3);
+
+/**
+ * A figure beside the bound it misses, with enough decimals that the two read
+ * differently (0.9499 beside 0.950, never "0.950, below the target 0.950").
+ */
+export function distinctDigits(value: number, bound: number, digits = 3): [string, string] {
+  let d = digits;
+  while (d < 8 && value.toFixed(d) === bound.toFixed(d)) d++;
+  return [value.toFixed(d), bound.toFixed(digits)];
+}
 const f1 = (x: number) => x.toFixed(1);
 const pfText = (pf: number, sense: PowerFactorSense) => (sense === 'unity' ? '1.000' : `${f3(pf)} ${sense}`);
 
@@ -28,17 +38,29 @@ export const TARGET_STATEMENTS: Record<TargetDefinition, string> = {
 };
 
 export const targetShortfall = {
-  lineBelow: (phase: PhaseId, pf: number, sense: PowerFactorSense, min: number) =>
-    `line ${phase} is at ${pfText(pf, sense)}, below the target ${f3(min)} lagging`,
+  lineBelow: (phase: PhaseId, pf: number, sense: PowerFactorSense, min: number) => {
+    const [v, m] = distinctDigits(pf, min);
+    return `line ${phase} is at ${sense === 'unity' ? v : `${v} ${sense}`}, below the target ${m} lagging`;
+  },
+  lineLeadsMore: (phase: PhaseId, pf: number, pfBefore: number) => {
+    const [v, b] = distinctDigits(pf, pfBefore);
+    return `line ${phase} led at ${b} before and the equipment makes it lead more (${v} leading)`;
+  },
   lineBeyond: (phase: PhaseId, pf: number, sense: PowerFactorSense, t: TargetWords) =>
     t.maxLaggingPf !== null && t.definition === 'per-line'
       ? `line ${phase} is at ${pfText(pf, sense)}, past the upper bound ${f3(t.maxLaggingPf)} lagging`
       : t.leading === 'never'
         ? `line ${phase} is leading (${pfText(pf, sense)}) and leading is not allowed`
         : `line ${phase} leads at ${pfText(pf, sense)}, below the lowest allowed leading PF ${f3(t.minLeadingPf ?? t.pf)}`,
-  boardBelow: (t: TargetWords, pf: number | null) =>
-    pf === null ? `the ${t.definition} power factor is not defined for this board` : `the board's ${t.definition} power factor is ${f3(pf)}, below the target ${f3(t.pf)}`,
-  boardBeyond: (t: TargetWords, pf: number | null) => `the board's ${t.definition} power factor ${f3(pf ?? 0)} is past the upper bound ${f3(t.maxLaggingPf ?? 1)}`,
+  boardBelow: (t: TargetWords, pf: number | null) => {
+    if (pf === null) return `the ${t.definition} power factor is not defined for this board`;
+    const [v, m] = distinctDigits(pf, t.pf);
+    return `the board's ${t.definition} power factor is ${v}, below the target ${m}`;
+  },
+  boardBeyond: (t: TargetWords, pf: number | null) => {
+    const [v, m] = distinctDigits(pf ?? 0, t.maxLaggingPf ?? 1);
+    return `the board's ${t.definition} power factor ${v} is past the upper bound ${m}`;
+  },
 };
 
 export const infeasibleReason = {
@@ -49,8 +71,13 @@ export const infeasibleReason = {
     `no capacitor-only bank of this arrangement meets the target without breaking a bound; the best reachable leaves: ${shortfalls.join('; ')}`,
   notConverged: (iterations: number, change: number) =>
     `the sizing did not settle in ${iterations} re-solves (last change ${change.toExponential(2)} of the board's apparent power)`,
-  needsReactors: (branches: readonly string[]) =>
-    `the ideal compensator needs reactors on ${branches.join(', ')}; the capacitor-only compensator is the best reachable without them`,
+  needsReactors: (branches: readonly string[], all: readonly { branch: string; element: string; kvarAtNominalV: number }[]) =>
+    `the ideal (Steinmetz/Gyugyi) compensator balances it with ${all
+      .filter((b) => b.element !== 'none')
+      .map((b) => `${b.element === 'reactor' ? 'a reactor' : 'a capacitor'} of ${Math.abs(b.kvarAtNominalV).toFixed(2)} kvar on ${b.branch}`)
+      .join(', ')}: reactors on ${branches.join(', ')} are needed, which a capacitor-only build cannot give`,
+  capacitorsCannotBalance: (shortfalls: readonly string[]) =>
+    `capacitors alone cannot bring the unbalance down without making a line lead: ${shortfalls.join('; ')}`,
   unitsMissTarget: (shortfalls: readonly string[]) => `with the units chosen the corrected board misses the target: ${shortfalls.join('; ')}`,
 };
 
@@ -78,6 +105,8 @@ export const warningText = {
     `${branches.join(', ')}: no build keeps every switched step at or above ${f1(minKvar)} kvar; the closest build is used`,
   starPointShift: (shiftV: number, percent: number, lowV: number, highV: number) =>
     `the floating star point of the bank sits ${f1(shiftV)} V (${percent.toFixed(0)} % of line-to-neutral) from the centroid of the line voltages, so its elements see ${f1(lowV)}–${f1(highV)} V: a star bank with unequal branches on a board without a neutral works against itself; consider a delta bank`,
+  reactorsNeeded: (branches: readonly string[], capacitorShortfalls: readonly string[]) =>
+    `capacitors alone would leave ${capacitorShortfalls.join('; ') || 'the target unmet'}: the recommended compensator includes reactors on ${branches.join(', ')} (Steinmetz/Gyugyi); set compensator.reactors: none for capacitors only`,
   reactorsNotSelected: 'reactors are given as continuous values only (kvar, mH); choosing reactor hardware is not part of this study',
   idealSource: 'the source impedance is zero, so the steady voltage rise and the resonance order cannot be estimated',
 };

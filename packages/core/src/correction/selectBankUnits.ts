@@ -137,6 +137,9 @@ export function selectBankUnits(sized: SizedEquipment, options?: SelectBankUnits
 
   // Per branch: the window and the voltage rule.
   const slots = sized.equipment.flatMap((g) => g.branches);
+  // Beside reactors (kept at their continuous value) a capacitor may not grow past its
+  // requirement: the balance would tip and lines lead. Otherwise a quarter more is allowed.
+  const headroom = sized.branches.some((b) => b.element === 'reactor') ? 1 : NO_LIMIT_HEADROOM;
   const branchInfo = sized.branches.map((b, i) => {
     const slot = slots[i]!;
     const light = opts.lightLoad?.branches[i];
@@ -148,7 +151,7 @@ export function selectBankUnits(sized: SizedEquipment, options?: SelectBankUnits
     // Where the sizing gives no upper limit (the capacitor-only compensator), a branch takes at
     // most a quarter more than it needs and an empty branch nothing: past that its lines lead.
     const limitF =
-      b.element === 'reactor' ? null : b.limitSusceptanceS !== null ? Math.max(b.limitSusceptanceS, 0) / omega : capacitor ? (NO_LIMIT_HEADROOM * requiredF) : 0;
+      b.element === 'reactor' ? null : b.limitSusceptanceS !== null ? Math.max(b.limitSusceptanceS, 0) / omega : capacitor ? headroom * requiredF : 0;
     const maxF = limitF === null ? null : limitF / (1 + plus);
     const lightLimit = light ? Math.max(0, light.limitSusceptanceS ?? light.susceptanceS) : 0;
     const fixedMaxF = Math.min(lightLimit / omega / (1 + plus), minF);
@@ -186,13 +189,17 @@ export function selectBankUnits(sized: SizedEquipment, options?: SelectBankUnits
     const delta = three && set.group.connection === 'ABC-delta';
     const floating = three && set.group.branches.some((b) => b.to === 'star');
     const singles = all.filter((u) => u.unit.kind === 'single-phase');
-    const balancedChoices: UnitChoice[] = three
+    // Beside a reactor a set gets no equal part: it would put capacitance on the reactor's branch.
+    const withReactor = infos.some((x) => x.b.element === 'reactor');
+    const balancedChoices: UnitChoice[] = withReactor
+      ? []
+      : three
       ? [
           ...(delta ? all.filter((u) => u.unit.kind === 'three-phase' && fits(u.unit, set.indices)).map((u) => choiceOf(u, 1)) : []),
           ...singles.filter((u) => fits(u.unit, set.indices)).map((u) => choiceOf(u, 3)),
         ]
       : singles.filter((u) => fits(u.unit, set.indices)).map((u) => choiceOf(u, 1));
-    const trimsAllowed = three && !floating && (opts.trimSteps ?? CORRECTION_DEFAULTS.trimSteps) === 'auto';
+    const trimsAllowed = three && !floating && (withReactor || (opts.trimSteps ?? CORRECTION_DEFAULTS.trimSteps) === 'auto');
     const trimChoices = set.indices.map((i) => (trimsAllowed && branchInfo[i]!.capacitor ? singles.filter((u) => fits(u.unit, [i])).map((u) => choiceOf(u, 1)) : []));
     if (!balancedChoices.length && !trimChoices.some((c) => c.length)) {
       unbuildable.push(...set.indices.filter((i) => branchInfo[i]!.capacitor));
@@ -287,13 +294,17 @@ export function selectBankUnits(sized: SizedEquipment, options?: SelectBankUnits
   }
   if (sized.branches.some((b) => b.element === 'reactor')) warn('reactors-not-selected', warningText.reactorsNotSelected);
 
+  // A reactor below 1 % of the compensator is what the supply impedance leaves in the
+  // exact solution, not something to build (common practice, no source).
+  const totalKvar = sized.branches.reduce((sum, b) => sum + Math.abs(b.kvarAtNominalV), 0);
+  const negligible = (b: (typeof sized.branches)[number]) => Math.abs(b.kvarAtNominalV) < 0.01 * totalKvar;
   let k = 0;
   const equipment: EquipmentGroup[] = sized.equipment.map((g) => ({
     ...g,
     branches: g.branches.map((br): EquipmentBranch => {
       const i = k++;
       const b = sized.branches[i]!;
-      const reactor = b.element === 'reactor';
+      const reactor = b.element === 'reactor' && !negligible(b);
       return { ...br, susceptanceS: reactor ? b.susceptanceS : designF[i]! * omega, fixedSusceptanceS: reactor ? b.susceptanceS : fixedF[i]! * omega };
     }),
   }));
@@ -307,7 +318,7 @@ export function selectBankUnits(sized: SizedEquipment, options?: SelectBankUnits
   };
   const selections = branchInfo.map(({ b, slot, need, highestVoltageV, requiredRatedV }, i): BranchSelection => {
     const share = perBranch(i);
-    const reactor = b.element === 'reactor';
+    const reactor = b.element === 'reactor' && !negligible(b);
     const design = designF[i]!;
     return {
       branch: b.branch,

@@ -9,7 +9,8 @@
 import type { Board } from '../board/boardModel.js';
 import type { SolveOptions } from '../network/solveNetwork.js';
 import { abs } from '../complex.js';
-import { compensatorSchema, targetSchema, type CompensatorSpec, type TargetSpec } from './correctionSpec.js';
+import { balanceTargetSchema, compensatorSchema, targetSchema, type BalanceTargetSpec, type CompensatorSpec, type TargetSpec } from './correctionSpec.js';
+import { checkBalance, resolveBalanceTarget, type BalanceTarget } from './balanceTarget.js';
 import { CORRECTION_DEFAULTS } from './correctionDefaults.js';
 import { checkTarget, resolveTarget, type ResolvedTarget } from './correctionTarget.js';
 import { lineBands } from './_internal/lineBands.js';
@@ -20,7 +21,7 @@ import { checkRules, definedOnly, maxIterationsSchema, solveOptionsSchema } from
 import { parseOptions } from '../_internal/zodIssues.js';
 import { createProbe, type ProbeState } from './_internal/boardProbe.js';
 import { branchSizings, lineComparisons } from './_internal/branchReadings.js';
-import { compensatorResidual, residualWeights, type ResidualBases } from './_internal/compensatorResidual.js';
+import { residualWeights, type ResidualBases } from './_internal/compensatorResidual.js';
 import { solveIdealCompensator } from './_internal/idealCompensator.js';
 import { solveCapacitorOnlyCompensator } from './_internal/capacitorOnlyCompensator.js';
 
@@ -38,8 +39,16 @@ export interface CompensatorOptions {
    * @defaultValue 'delta-and-star' on a board with a closed neutral, otherwise 'delta'
    */
   readonly branches?: CompensatorSpec['branches'];
+  /**
+   * `allowed`: where capacitors alone cannot meet the PF and balance targets,
+   * recommend the ideal solution with its reactors (given as kvar and mH).
+   * @defaultValue 'allowed'
+   */
+  readonly reactors?: CompensatorSpec['reactors'];
   /** Weights of the capacitor-only objective. @defaultValue `{ negativeSequence: 1, zeroSequence: 1, reactive: 1 }` */
   readonly weights?: CompensatorSpec['weights'];
+  /** Unbalance the compensator must bring down to. @defaultValue `{ maxNegativeSequencePercent: 10, maxNeutralPercent: 20 }` */
+  readonly balance?: BalanceTargetSpec;
   /** Passed to the board solver at every re-solve. @defaultValue solver defaults */
   readonly solve?: SolveOptions;
   /** Outer iterations of each solution. @defaultValue 30 */
@@ -48,12 +57,15 @@ export interface CompensatorOptions {
 
 const compensatorOptionsSchema = compensatorSchema.extend({
   target: targetSchema.optional(),
+  balance: balanceTargetSchema.optional(),
   solve: solveOptionsSchema.optional(),
   maxIterations: maxIterationsSchema.optional(),
 });
 
 interface ResolvedCompensatorOptions {
+  readonly reactors: 'allowed' | 'none';
   readonly target: ResolvedTarget;
+  readonly balance: BalanceTarget;
   readonly branches: 'delta' | 'delta-and-star';
   readonly weights: { negativeSequence: number; zeroSequence: number; reactive: number };
   readonly solve: SolveOptions;
@@ -66,9 +78,12 @@ function resolveCompensatorOptions(board: Board, input: CompensatorOptions | und
   checkRules(definedOnly({ arrangement: 'balancing-compensator' as const, target: options.target, compensator }), board, 'sizeBalancingCompensator options');
   const w = options.weights ?? {};
   const defaults = CORRECTION_DEFAULTS.compensatorWeights;
+  const branches = options.branches ?? (board.hasNeutral && !board.neutralOpen ? 'delta-and-star' : 'delta');
   return {
+    reactors: options.reactors ?? 'allowed',
     target: resolveTarget(options.target, board, 'balancing-compensator'),
-    branches: options.branches ?? (board.hasNeutral && !board.neutralOpen ? 'delta-and-star' : 'delta'),
+    balance: resolveBalanceTarget(options.balance, branches === 'delta-and-star'),
+    branches,
     weights: {
       negativeSequence: w.negativeSequence ?? defaults.negativeSequence,
       zeroSequence: w.zeroSequence ?? defaults.zeroSequence,
@@ -103,10 +118,15 @@ export function sizeBalancingCompensator(board: Board, options?: CompensatorOpti
   const start = probe.at(slots.map(() => 0));
   const i1 = start.result.sequences ? abs(start.result.sequences.current.positive) : 0;
   const currentBase = i1 > 0 ? i1 : 1;
+  // The PF target is a lower bound: a board already better than it keeps its own
+  // Q1 (clamped to the upper bound), so nothing adds lagging vars to reach it.
+  const ps0 = start.result.powerFactor.positiveSequence;
+  const presentTan = ps0 && ps0.kW > 0 ? ps0.kvar / ps0.kW : Infinity;
+  const lowTan = target.leading === 'allowed' ? -tanOf(target.minLeadingPf ?? target.pf) : target.maxLaggingPf !== null ? tanOf(target.maxLaggingPf) : 0;
   const bases: ResidualBases = {
     currentA: currentBase,
     powerKVA: (3 * board.nominalLineToNeutralV * currentBase) / 1000,
-    targetTan: tanOf(target.pf),
+    targetTan: Math.min(tanOf(target.pf), Math.max(presentTan, lowTan)),
     includeZeroSequence: opts.branches === 'delta-and-star',
   };
   const weights = residualWeights(bases, opts.weights);
@@ -116,7 +136,7 @@ export function sizeBalancingCompensator(board: Board, options?: CompensatorOpti
   const solution = (kind: CompensatorSolution['kind'], state: ProbeState, objective: number, exact: boolean): CompensatorSolution => {
     const equipment = probe.groups(state.kvar);
     const branches = branchSizings(equipment, state.board, state.result);
-    const check = checkTarget(state.result, target);
+    const check = checkTarget(state.result, target, start.result);
     const ps = state.result.powerFactor.positiveSequence;
     return {
       kind,
@@ -153,23 +173,32 @@ export function sizeBalancingCompensator(board: Board, options?: CompensatorOpti
   if (!capOnly.converged) warn('not-converged', compensatorWording.notConverged('capacitor-only', capOnly.iterations));
   if (capOnly.leadingConstraintsDropped) warn('leading-bound-dropped', compensatorWording.leadingDropped);
 
-  const startResidual = compensatorResidual(start, bases);
   const idealSolution = solution('ideal', ideal.state, 0, ideal.converged);
   const capSolution = solution('capacitor-only', capOnly.state, capOnly.objective, Math.sqrt(capOnly.objective) < 1e-6);
-  const alreadyBalanced = Math.hypot(...startResidual) < 1e-9 && checkTarget(start.result, target).met;
+  const balanceBefore = checkBalance(start.result, opts.balance);
+  const balanceAfter = checkBalance(capOnly.state.result, opts.balance);
+  const idealBalance = checkBalance(ideal.state.result, opts.balance);
+  const idealWorks = opts.reactors === 'allowed' && idealSolution.check.met && idealBalance.met && ideal.converged;
   let status: CompensatorSizing['status'] = 'infeasible';
+  let recommended: CompensatorSizing['recommended'] = 'capacitor-only';
   const reasons: string[] = [];
-  if (alreadyBalanced) status = 'already-meets-target';
-  else if (capSolution.check.met) {
+  if (balanceBefore.met && checkTarget(start.result, target).met) status = 'already-meets-target';
+  else if (!(capSolution.check.met && balanceAfter.met) && idealWorks) {
+    // Capacitors alone cannot do it; the Steinmetz/Gyugyi solution with its reactors can.
     status = 'meets-target';
-    if (!capSolution.exact)
+    recommended = 'ideal';
+    warn('reactors-needed', warningText.reactorsNeeded(idealSolution.reactorBranches, balanceAfter.shortfalls.concat(capSolution.check.shortfalls)));
+  } else if (capSolution.check.met && balanceAfter.met) {
+    status = 'meets-target';
+    if (!capSolution.exact && idealSolution.reactorBranches.length)
       warn(
         'partial-balance',
         warningText.partialBalance(capSolution.residual.negativeSequenceCurrentPercent, capSolution.residual.zeroSequenceCurrentPercent, idealSolution.reactorBranches),
       );
   } else {
-    if (idealSolution.reactorBranches.length) reasons.push(infeasibleReason.needsReactors(idealSolution.reactorBranches));
+    if (!balanceAfter.met) reasons.push(infeasibleReason.capacitorsCannotBalance(balanceAfter.shortfalls));
     if (capSolution.check.shortfalls.length) reasons.push(infeasibleReason.capacitorsCannotReach(capSolution.check.shortfalls));
+    if (idealSolution.reactorBranches.length) reasons.push(infeasibleReason.needsReactors(idealSolution.reactorBranches, idealSolution.branches));
   }
   return {
     arrangement: 'balancing-compensator',
@@ -178,6 +207,10 @@ export function sizeBalancingCompensator(board: Board, options?: CompensatorOpti
     q1TargetKvar: (capOnly.state.result.powerFactor.positiveSequence?.kW ?? 0) * bases.targetTan,
     objectiveStatement: compensatorWording.objective(opts.weights, bases.includeZeroSequence, CORRECTION_DEFAULTS.compensatorRidge, true),
     weights: opts.weights,
+    balance: opts.balance,
+    balanceBefore,
+    balanceAfter: recommended === 'ideal' ? idealBalance : balanceAfter,
+    recommended,
     ideal: idealSolution,
     capacitorOnly: capSolution,
     status,

@@ -101,10 +101,10 @@ export function verifyCorrection(board: Board, options: VerifyCorrectionOptions)
   const before = solve(board);
   const corrected = addCorrectionEquipment(board, equipment);
   const after = solve(corrected);
-  const check = checkTarget(after, target);
+  const check = checkTarget(after, target, before);
   const branches = branchSizings(equipment, corrected, after);
-  const low = checkTarget(solve(addCorrectionEquipment(board, equipment, { capacitanceFactor: 1 - minus })), target);
-  const high = checkTarget(solve(addCorrectionEquipment(board, equipment, { capacitanceFactor: 1 + plus })), target);
+  const low = checkTarget(solve(addCorrectionEquipment(board, equipment, { capacitanceFactor: 1 - minus })), target, before);
+  const high = checkTarget(solve(addCorrectionEquipment(board, equipment, { capacitanceFactor: 1 + plus })), target, before);
   if (check.met && !low.met) warn('tolerance-low', warningText.toleranceLow(low.shortfalls));
   if (high.leadingLines.length && !check.leadingLines.length) warn('tolerance-high', warningText.toleranceHigh(high.leadingLines));
 

@@ -90,6 +90,16 @@ function contribution(effect: HandEffectId, explanation: string, from: Figures, 
   };
 }
 
+/**
+ * The board with the hand figures' capacitors connected as what they are (capacitances), ready to solve
+ * or to draw against the board without them.
+ * @throws {InputError} for figures that are not valid for the board
+ */
+export function addHandCapacitors(board: Board, figures: unknown): Board {
+  const plans = planCapacitors(parseHandFigures(figures, board), board);
+  return { ...board, loads: [...board.loads, ...capacitorLoads(plans, board, true)] };
+}
+
 const compared = (yours: number | null | undefined, textbook: number, solved: number): Compared => ({ yours: yours ?? null, textbook, solved, difference: solved - textbook });
 
 /**

@@ -45,6 +45,14 @@ export class CompiledNetwork {
   /** Complex power of each branch at its nominal voltage, VA; callers may overwrite between solves. */
   readonly powerRe: Float64Array;
   readonly powerIm: Float64Array;
+  /**
+   * Current injected into each node by ideal current sources, A: zero unless a
+   * caller sets it (harmonic orders: non-linear loads as sources, see
+   * solveFixedNetwork.ts). Read by `solveLinear`; an injection at a node an
+   * ideal EMF fixes goes into that source.
+   */
+  readonly injectionRe: Float64Array;
+  readonly injectionIm: Float64Array;
   /** Iterations and last voltage change (fraction of base) of the last solve. */
   iterations = 0;
   lastChange = 0;
@@ -81,6 +89,8 @@ export class CompiledNetwork {
     this.circuit = circuit;
     const n = circuit.nodeNames.length;
     this.nodeCount = n;
+    this.injectionRe = new Float64Array(n);
+    this.injectionIm = new Float64Array(n);
     this.branchCount = circuit.branches.length;
     const m = this.branchCount;
     this.powerRe = new Float64Array(m);
@@ -294,6 +304,11 @@ export class CompiledNetwork {
     im.set(this.baseIm);
     rhsRe.set(this.baseRhsRe);
     rhsIm.set(this.baseRhsIm);
+    for (let i = 0; i < this.nodeOfUnknown.length; i++) {
+      const v = this.nodeOfUnknown[i]!;
+      rhsRe[i] = rhsRe[i]! + this.injectionRe[v]!;
+      rhsIm[i] = rhsIm[i]! + this.injectionIm[v]!;
+    }
     const slots = this.bSlots;
     for (let k = 0; k < this.branchCount; k++) {
       if (!this.bActive[k]) continue;

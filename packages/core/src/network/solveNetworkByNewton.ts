@@ -106,30 +106,34 @@ function sourceCurrentsAt(circuit: Circuit, voltages: readonly (ComplexValue | n
 }
 
 /**
- * Dense real solve with partial pivoting. The system is a few dozen unknowns;
- * the project's LU (`_internal/complexLu.ts`) is complex-only, and this Jacobian is not.
+ * Dense real solve with partial pivoting, in place on a row-major `a` (n × n) and `b`.
+ * The system is a few dozen unknowns; the project's LU (`_internal/complexLu.ts`)
+ * is complex-only, and this Jacobian is not complex-analytic.
  */
-function solveReal(a: number[][], b: number[]): number[] | null {
-  const n = b.length;
-  const scaleOf = Math.max(1e-300, ...a.map((row) => Math.max(...row.map(Math.abs))));
+function solveReal(a: Float64Array, b: Float64Array, n: number): Float64Array | null {
+  let scaleOf = 1e-300;
+  for (let k = 0; k < a.length; k++) scaleOf = Math.max(scaleOf, Math.abs(a[k]!));
   for (let c = 0; c < n; c++) {
     let pivot = c;
-    for (let r = c + 1; r < n; r++) if (Math.abs(a[r]![c]!) > Math.abs(a[pivot]![c]!)) pivot = r;
-    if (!(Math.abs(a[pivot]![c]!) > 1e-13 * scaleOf)) return null;
-    [a[c], a[pivot]] = [a[pivot]!, a[c]!];
-    [b[c], b[pivot]] = [b[pivot]!, b[c]!];
+    for (let r = c + 1; r < n; r++) if (Math.abs(a[r * n + c]!) > Math.abs(a[pivot * n + c]!)) pivot = r;
+    if (!(Math.abs(a[pivot * n + c]!) > 1e-13 * scaleOf)) return null;
+    if (pivot !== c) {
+      for (let j = 0; j < n; j++) [a[c * n + j], a[pivot * n + j]] = [a[pivot * n + j]!, a[c * n + j]!];
+      [b[c], b[pivot]] = [b[pivot]!, b[c]!];
+    }
+    const d = a[c * n + c]!;
     for (let r = c + 1; r < n; r++) {
-      const k = a[r]![c]! / a[c]![c]!;
+      const k = a[r * n + c]! / d;
       if (k === 0) continue;
-      for (let j = c; j < n; j++) a[r]![j]! -= k * a[c]![j]!;
+      for (let j = c; j < n; j++) a[r * n + j]! -= k * a[c * n + j]!;
       b[r]! -= k * b[c]!;
     }
   }
-  const x = new Array<number>(n).fill(0);
+  const x = new Float64Array(n);
   for (let r = n - 1; r >= 0; r--) {
     let s = b[r]!;
-    for (let j = r + 1; j < n; j++) s -= a[r]![j]! * x[j]!;
-    x[r] = s / a[r]![r]!;
+    for (let j = r + 1; j < n; j++) s -= a[r * n + j]! * x[j]!;
+    x[r] = s / a[r * n + r]!;
   }
   return x.every(Number.isFinite) ? x : null;
 }
@@ -165,24 +169,31 @@ export function solveNetworkByNewton(board: Board, start: readonly (ComplexValue
   });
   const at = (node: number) => (node === REFERENCE ? ZERO : (voltages[node] ?? ZERO));
   const live = (node: number) => node === REFERENCE || voltages[node] !== null;
+  const size = 2 * n;
+  // Rows/columns of a node (−1: reference or fixed EMF terminal, not an unknown).
+  const slot = (node: number) => (node === REFERENCE ? -1 : index[node]!);
   for (let iteration = 1; iteration <= maxIterations; iteration++) {
-    const jac = Array.from({ length: 2 * n }, () => new Array<number>(2 * n).fill(0));
-    const residual = new Array<number>(2 * n).fill(0);
+    const jac = new Float64Array(size * size);
+    const residual = new Float64Array(size);
     // Current `current` leaves p and enters q; its derivatives are with respect to V(p) − V(q).
     const stamp = (p: number, q: number, current: ComplexValue, dx: ComplexValue, dy: ComplexValue) => {
-      for (const [node, sign] of [[p, 1], [q, -1]] as const) {
-        const row = node === REFERENCE ? -1 : index[node]!;
+      const rp = slot(p);
+      const rq = slot(q);
+      for (let side = 0; side < 2; side++) {
+        const row = side === 0 ? rp : rq;
         if (row < 0) continue;
+        const sign = side === 0 ? 1 : -1;
         residual[2 * row]! += sign * current.re;
         residual[2 * row + 1]! += sign * current.im;
-        for (const [other, dir] of [[p, 1], [q, -1]] as const) {
-          const col = other === REFERENCE ? -1 : index[other]!;
+        for (let other = 0; other < 2; other++) {
+          const col = other === 0 ? rp : rq;
           if (col < 0) continue;
-          const k = sign * dir;
-          jac[2 * row]![2 * col]! += k * dx.re;
-          jac[2 * row + 1]![2 * col]! += k * dx.im;
-          jac[2 * row]![2 * col + 1]! += k * dy.re;
-          jac[2 * row + 1]![2 * col + 1]! += k * dy.im;
+          const k = other === 0 ? sign : -sign;
+          const at = 2 * row * size + 2 * col;
+          jac[at]! += k * dx.re;
+          jac[at + size]! += k * dx.im;
+          jac[at + 1]! += k * dy.re;
+          jac[at + size + 1]! += k * dy.im;
         }
       }
     };
@@ -200,7 +211,8 @@ export function solveNetworkByNewton(board: Board, start: readonly (ComplexValue
       const { current, dx, dy } = branchCurrent(b, sub(at(b.from), at(b.to)), threshold);
       stamp(b.from, b.to, current, dx, dy);
     }
-    const step = solveReal(jac, residual.map((r) => -r));
+    for (let k = 0; k < size; k++) residual[k] = -residual[k]!;
+    const step = solveReal(jac, residual, size);
     if (!step) return { converged: false, iterations: iteration };
     let largest = 0;
     for (let k = 0; k < n; k++) largest = Math.max(largest, Math.hypot(step[2 * k]!, step[2 * k + 1]!) / vBase);

@@ -80,12 +80,17 @@ function row(set: SequenceSet<Phasor>, unit: 'V' | 'A', y0: number, sequence: 'A
  * Renders the sequence-component view of a solved three-phase board.
  * @throws {InputError} for a board without sequence components (split-phase or single-phase)
  */
-export function renderSequenceDiagram(result: BoardResult): string {
+export interface SequenceDiagramOptions {
+  /** Heading inside the drawing. @defaultValue 'Symmetrical components' */
+  readonly title?: string;
+}
+
+export function renderSequenceDiagram(result: BoardResult, options: SequenceDiagramOptions = {}): string {
   if (!result.sequences)
     throw new InputError([inputIssue('not-three-phase', 'supply.system', 'a three-phase board (sequence components exist only there)', result.board.system)], 'no sequence view');
   const { width, rowHeight, top } = SEQUENCE_LAYOUT;
   const height = top + 2 * rowHeight + 10;
-  const title = 'Symmetrical components';
+  const title = options.title ?? 'Symmetrical components';
   return (
     `<svg xmlns="http://www.w3.org/2000/svg"${attrs({ viewBox: `0 0 ${coord(width)} ${coord(height)}`, width, height, 'font-family': 'DejaVu Sans, Liberation Sans, Arial, sans-serif', role: 'img', 'data-view': 'sequence' })}>` +
     `<title>${escapeXml(`${title}: ${result.board.name}`)}</title>` +

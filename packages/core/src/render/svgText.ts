@@ -3,9 +3,19 @@
  * formatting that gives the same characters on every run and platform.
  */
 
+/**
+ * Control characters XML 1.0 forbids (and that a terminal would act on) are shown as escapes (\u{1B});
+ * tab and newline become spaces, so a name never breaks a label or a table cell.
+ */
+const CONTROL = /[\u0000-\u001f\u007f-\u009f\u2028\u2029\u202a-\u202e\u2066-\u2069]/g;
+
+/** Control characters shown as visible escapes; tab and line breaks as spaces. */
+export const visibleControls = (text: string): string =>
+  text.replace(CONTROL, (c) => (c === '\t' || c === '\n' || c === '\r' ? ' ' : `\\u{${c.codePointAt(0)!.toString(16).toUpperCase()}}`));
+
 /** Escapes text for an XML/HTML text node or a double-quoted attribute. */
 export function escapeXml(text: string): string {
-  return text.replace(/[&<>"']/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[c]!);
+  return visibleControls(text).replace(/[&<>"']/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[c]!);
 }
 
 /** A coordinate with two decimals, no trailing zeros, never "-0". */

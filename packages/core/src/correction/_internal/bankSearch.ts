@@ -182,10 +182,11 @@ function rankKey(build: SetBuild, needs: readonly Need[]): number[] {
   const worst = Math.max(...build.tiers);
   const missSum = build.tiers.reduce((s, t, i) => s + miss(build.designF[i]!, needs[i]!, t), 0);
   const steps = (build.balanced?.stepCounts.length ?? 0) + build.trims.length;
-  // Misses within half a per cent count as equal, so cost can decide between near-equal builds.
+  // Misses within 5 % of the requirement count as equal, so cost decides between near-equal builds
+  // (a bank that cannot reach the target anyway is not worth a dozen small cans for the last per cent).
   // Never past a bound (leading) comes before the minimum step: a step below it is a nuisance, a leading line is not.
   const past = build.tiers.some((t) => t === 5);
-  return [Number(v.unitCap), Number(v.outputs), Number(past), Number(v.minStep), worst, Math.round(missSum * 200), build.stepsShort, build.cost, -steps];
+  return [Number(v.unitCap), Number(v.outputs), Number(past), Number(v.minStep), worst, Math.round(missSum * 20), build.stepsShort, build.cost, -steps];
 }
 
 const better = (a: readonly number[], b: readonly number[]) => {
@@ -199,7 +200,7 @@ function bestTrim(branch: number, need: Need, baseF: number, choices: readonly U
     const tier = tierOf(f, need);
     const kvar = trim ? trim.count * trim.choice.unit.ratedKvar : 0;
     const below = trim !== null && kvar < rules.minStepKvar - 1e-9;
-    return [Number(below), tier, Math.round(miss(f, need, tier) * 200), trim ? kvar + rules.unitCostKvar * trim.count : 0];
+    return [Number(below), tier, Math.round(miss(f, need, tier) * 20), trim ? kvar + rules.unitCostKvar * trim.count : 0];
   };
   let best: TrimBuild | null = null;
   let bestKey = key(baseF, null);

@@ -20,7 +20,11 @@ export const MIN_DELTA_SHARE = 0.05;
 export function deltaKvarToStarKvar(board: Board, deltaKvar: readonly number[]): number[] {
   const ll = board.nominalLineToLineV ?? board.nominalLineToNeutralV;
   const ln = board.nominalLineToNeutralV;
-  const [ab, bc, ca] = deltaKvar.map((q) => susceptanceFromKvar(q, ll)) as [number, number, number];
+  // Round-off below a microvar is no bank; otherwise each branch keeps its minimum share, which the
+  // sizing LP enforces up to round-off (a branch a hair below it would put an infinite star element).
+  const total = deltaKvar.reduce((a, b) => a + Math.max(0, b), 0);
+  if (total < 1e-6) return [0, 0, 0];
+  const [ab, bc, ca] = deltaKvar.map((q) => susceptanceFromKvar(Math.max(q, MIN_DELTA_SHARE * total), ll)) as [number, number, number];
   const products = ab * bc + bc * ca + ca * ab;
   if (products === 0) return [0, 0, 0];
   return [products / bc, products / ca, products / ab].map((b) => kvarFromSusceptance(b, ln));

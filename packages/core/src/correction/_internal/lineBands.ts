@@ -5,7 +5,7 @@
  * may not make it worse, and the other lines can still be corrected. The final
  * check still reports that line against the real bound.
  */
-import { lineTanBounds, type ResolvedTarget } from '../correctionTarget.js';
+import { LEAD_MORE_TOLERANCE, lineTanBounds, type ResolvedTarget } from '../correctionTarget.js';
 import type { ProbeState } from './boardProbe.js';
 import type { LineBand } from './sizeForLineTargets.js';
 
@@ -15,7 +15,7 @@ export function lineBands(target: ResolvedTarget, start: ProbeState, kind: 'targ
     const p = Math.abs(start.lineP[line]!);
     const present = p > 0 ? q / p : q >= 0 ? Infinity : -Infinity;
     // Clamped so a line with no active power keeps finite coefficients (PF 0.001 leading).
-    const lower = Math.max(Math.min(low, present), -1e3);
+    const lower = Math.max(present < low ? present - LEAD_MORE_TOLERANCE : low, -1e3);
     return { high: kind === 'limit' ? lower : high, low: lower };
   });
 }

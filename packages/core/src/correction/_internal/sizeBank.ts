@@ -40,11 +40,10 @@ export function sizeBank(board: Board, arrangement: BankSizing['arrangement'], s
     const state = floating ? built.at(toBuilt(sized.kvar)) : sized;
     const limitKvar = sizedLimit && toBuilt(sizedLimit);
     const equipment = built.groups(state.kvar);
-    const check = checkTarget(state.result, target);
+    const check = checkTarget(state.result, target, start.result);
     const reasons = forced?.reasons ?? [];
     const status = forced?.status ?? (check.met ? 'meets-target' : 'infeasible');
     if (!forced && !check.met) {
-      if (checkBefore.leadingLines.length) reasons.push(infeasibleReason.alreadyLeading(checkBefore.leadingLines));
       reasons.push(infeasibleReason.capacitorsCannotReach(check.shortfalls));
     }
     const star = state.result.loads.at(-1)?.starPointShift ?? null;

@@ -56,7 +56,7 @@ export function installationSection(spec: BoardSpec, result: BoardResult): Repor
     ['Board', b.name],
     ['System', SYSTEM_WORDS[b.system] ?? b.system],
     ['Nominal voltage', `${b.nominalLineToLineV !== null ? `${fixed(b.nominalLineToLineV, 0)} V line-to-line, ` : ''}${fixed(b.nominalLineToNeutralV, 1)} V line-to-neutral`],
-    ['Frequency and sequence', `${b.frequencyHz} Hz, ${b.sequence}`],
+    ...((result.sequences ? [['Frequency and phase sequence', `${b.frequencyHz} Hz, ${b.sequence}`]] : [['Frequency', `${b.frequencyHz} Hz`]]) as [string, string][]),
     ['Source', source],
     ['Source voltages', s.emf ? 'unbalanced, as entered per phase' : 'balanced at nominal voltage'],
     ['Feeder, each line', conductorWords(spec.feeder?.line, spec.feeder)],
@@ -109,7 +109,9 @@ export function scheduleSection(spec: BoardSpec, result: BoardResult): ReportSec
           { label: 'V %nom', align: 'right' },
         ],
         rows,
-        note: 'A: largest current the circuit draws from one line. V %nom: the lowest voltage across any part of the circuit, % of its nominal voltage.',
+        note: `A: largest current the circuit draws from one line. V %nom: the lowest voltage across any part of the circuit, % of its nominal voltage.${
+          spec.loads.some((l) => l.breakerA !== undefined || l.circuit !== undefined) ? '' : ' Circuit numbers and breaker ratings come from the circuit and breakerA fields of each load in the board file.'
+        }`,
       },
     ],
   };

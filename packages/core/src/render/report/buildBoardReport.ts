@@ -9,7 +9,7 @@ import type { CorrectionReport } from '../../correction/correctionResult.js';
 import type { ReportDocument, ReportSection } from './reportDocument.js';
 import { installationSection, openNeutralSection, resultsSection, scheduleSection } from './boardSections.js';
 import { correctionSection, resonanceSection } from './correctionSection.js';
-import { BOARD_STANDARDS, CORRECTION_ASSUMPTIONS, CORRECTION_STANDARDS, MODEL_ASSUMPTIONS } from './reportWording.js';
+import { BOARD_STANDARDS, CORRECTION_ASSUMPTIONS, CORRECTION_STANDARDS, MODEL_ASSUMPTIONS, THREE_PHASE_STANDARDS } from './reportWording.js';
 
 export interface BoardReportInput {
   /** The board file as validated (`parseBoard`): names, circuit numbers, breakers, supply data. */
@@ -30,7 +30,7 @@ export interface BoardReportInput {
 function closingSections(input: BoardReportInput): ReportSection[] {
   const correction = input.correction ?? null;
   const assumptions = [...MODEL_ASSUMPTIONS, ...(correction ? CORRECTION_ASSUMPTIONS : [])];
-  const standards = [...BOARD_STANDARDS, ...(correction ? CORRECTION_STANDARDS : [])];
+  const standards = [...BOARD_STANDARDS, ...(input.result.sequences ? THREE_PHASE_STANDARDS : []), ...(correction ? CORRECTION_STANDARDS : [])];
   const cautions = [...new Set([...(correction?.cautions ?? []), ...input.result.cautions])];
   return [
     { id: 'assumptions', title: 'Assumptions', blocks: [{ kind: 'list', items: assumptions }] },

@@ -1,5 +1,6 @@
 /** A report document as Markdown, with each figure as an SVG file to write beside it. */
 import type { ReportBlock, ReportDocument } from './reportDocument.js';
+import { visibleControls } from '../svgText.js';
 
 export interface MarkdownReport {
   readonly markdown: string;
@@ -8,8 +9,8 @@ export interface MarkdownReport {
 }
 
 /** Markdown special characters in table cells and text that would change the layout. */
-const cell = (text: string): string => text.replace(/\\/g, '\\\\').replace(/\|/g, '\\|').replace(/\n/g, ' ');
-const text = (t: string): string => t.replace(/([\\`*_[\]<>])/g, '\\$1');
+const cell = (text: string): string => visibleControls(text.replace(/\\/g, '\\\\').replace(/\|/g, '\\|'));
+const text = (t: string): string => visibleControls(t.replace(/([\\`*_[\]<>])/g, '\\$1'));
 
 /**
  * Renders a report as Markdown.

@@ -20,6 +20,10 @@ export interface StandardReference {
 
 export const BOARD_STANDARDS: readonly StandardReference[] = [
   { name: 'IEEE Std 1459-2010', use: 'effective apparent power and power factor under unbalance; arithmetic and vector apparent power' },
+];
+
+/** Only for three-phase boards, where sequence components and unbalance indices are reported. */
+export const THREE_PHASE_STANDARDS: readonly StandardReference[] = [
   { name: 'C. L. Fortescue (1918), symmetrical components', use: 'zero-, positive- and negative-sequence voltages and currents' },
   { name: 'IEC 61000-4-30 / IEC 61000-2-2', use: 'voltage unbalance factor |V2|/|V1|' },
   { name: 'NEMA MG 1', use: 'line-voltage unbalance rate and the derating of three-phase motors' },

@@ -1,0 +1,159 @@
+/** HarmonicsReport → the human-readable report of `trivar harmonics`. */
+import type { DistortionReading, HarmonicsReport, ResonanceScan, CapacitorDuty, TddCheck, NeutralCheck } from '@trivar/core';
+import { fixed, renderTable, section } from './textTable.js';
+
+/** Orders shown as columns of the current table; the JSON has them all. */
+const MAX_ORDER_COLUMNS = 8;
+
+const thd = (d: DistortionReading) => (d.thdPercent === null ? '-' : fixed(d.thdPercent, 1));
+const orderPercent = (d: DistortionReading, h: number) => {
+  const o = d.orders.find((x) => x.order === h);
+  return o ? fixed(o.percentOfFundamental, 1) : '';
+};
+
+function currentTable(r: HarmonicsReport): string {
+  const shown = r.orders.slice(0, MAX_ORDER_COLUMNS);
+  const rows = r.lines.map((l) => [l.phase, fixed(l.current.rms, 1), fixed(l.current.fundamental, 1), thd(l.current), ...shown.map((h) => orderPercent(l.current, h))]);
+  if (r.neutral) rows.push(['N', fixed(r.neutral.current.rms, 1), fixed(r.neutral.current.fundamental, 1), '', ...shown.map((h) => orderPercent(r.neutral!.current, h))]);
+  const notes = [
+    ...(r.neutral ? ['  N row: orders as % of the neutral’s own fundamental current'] : []),
+    ...(r.orders.length > shown.length ? [`  orders above ${shown.at(-1)} in --json`] : []),
+  ];
+  const note = notes.length ? `\n${notes.join('\n')}` : '';
+  return (
+    renderTable(
+      [{ header: 'line', align: 'left' }, { header: 'rms A' }, { header: 'h1 A' }, { header: 'THD %' }, ...shown.map((h) => ({ header: `h${h} %` }))],
+      rows,
+    ) + note
+  );
+}
+
+function voltageTable(r: HarmonicsReport): string {
+  const rows = [
+    ...r.lines.map((l) => [`${l.phase}-N`, fixed(l.voltage.rms, 1), thd(l.voltage), largestOrder(l.voltage), l.truePf === null ? '-' : fixed(l.truePf, 3), l.displacementPf === null ? '-' : fixed(l.displacementPf, 3)]),
+    ...r.lineToLine.map((p) => [p.pair, fixed(p.voltage.rms, 1), thd(p.voltage), largestOrder(p.voltage), '', '']),
+  ];
+  return renderTable(
+    [{ header: 'at board', align: 'left' }, { header: 'rms V' }, { header: 'THD %' }, { header: 'largest', align: 'left' }, { header: 'true PF' }, { header: 'displ. PF' }],
+    rows,
+  );
+}
+
+function largestOrder(d: DistortionReading): string {
+  if (d.orders.length === 0) return '-';
+  const o = d.orders.reduce((a, b) => (b.magnitude > a.magnitude ? b : a));
+  return `h${o.order} ${fixed(o.percentOfFundamental, 1)} %`;
+}
+
+function neutralLines(n: NeutralCheck): string[] {
+  const lines = [
+    `  ${fixed(n.current.rms, 1)} A rms, of which ${fixed(n.current.fundamental, 1)} A at the fundamental; ${n.ratioToPhase === null ? '' : `${fixed(n.ratioToPhase, 2)} × the largest line current; `}triplen orders ${n.triplenSharePercent === null ? '-' : fixed(n.triplenSharePercent, 0)} % of its heating (rms²)`,
+  ];
+  if (n.ratingA !== null) lines.push(`  rating ${fixed(n.ratingA, 0)} A: ${fixed(n.loadingPercent ?? 0, 0)} % loaded${n.overloaded ? ' — OVERLOADED' : ''}`);
+  else lines.push('  no neutral rating in the board file (feeder.neutral.ratingA): not checked');
+  lines.push(`  practice: ${n.practice}`);
+  return lines;
+}
+
+function tddLines(t: TddCheck): string[] {
+  const head = `  I_sc/I_L = ${fixed(t.shortCircuitRatio, 1)} (${t.shortCircuitRatioFrom}), I_L = ${fixed(t.demandCurrentA, 1)} A (${t.demandCurrentFrom}); table row ${t.tableRow}, TDD limit ${t.tddLimitPercent} %`;
+  const table = renderTable(
+    [{ header: 'line', align: 'left' }, { header: 'TDD %' }, { header: 'limit %' }, { header: 'orders over their limit', align: 'left' }, { header: 'verdict', align: 'left' }],
+    t.lines.map((l) => {
+      const over = l.orders.filter((o) => !o.ok).map((o) => `h${o.order} ${fixed(o.percentOfDemand, 1)}/${o.limitPercent}`);
+      return [l.phase, fixed(l.tddPercent, 1), fixed(t.tddLimitPercent, 1), over.join(', ') || '-', l.ok ? 'within' : 'EXCEEDS'];
+    }),
+  );
+  return [head, table, `  source: ${t.source}`];
+}
+
+/** Bank states with the same output resonate alike: one row per output, listing the states. */
+function scanTable(s: ResonanceScan): string {
+  const groups = new Map<string, { labels: string[]; c: ResonanceScan['combinations'][number] }>();
+  for (const c of s.combinations) {
+    const key = fixed(c.capacitorKvar, 2);
+    const g = groups.get(key);
+    if (g) g.labels.push(c.label);
+    else groups.set(key, { labels: [c.label], c });
+  }
+  const rows = [...groups.values()].map(({ labels, c }) => {
+    const orders = [...new Set(c.peaks.map((p) => fixed(p.order, 1)))];
+    const main = c.peaks.length ? c.peaks.reduce((a, b) => (b.impedanceOhm > a.impedanceOhm ? b : a)) : null;
+    return [
+      labels.length > 2 ? `${labels[0]} (+${labels.length - 1} alike)` : labels.join(', '),
+      fixed(c.capacitorKvar, 1),
+      c.formulaOrder === null ? '-' : fixed(c.formulaOrder, 2),
+      orders.join(' ') || 'none',
+      main ? `${fixed(main.impedanceOhm, 3)} (${main.pair})` : '-',
+      c.nearOrders.length ? c.nearOrders.join(', ') : '-',
+    ];
+  });
+  return renderTable(
+    [
+      { header: 'bank state', align: 'left' },
+      { header: 'kvar on' },
+      { header: '√(Ssc/Qc)' },
+      { header: 'scanned peaks (h)', align: 'left' },
+      { header: 'largest |Z| ohm', align: 'left' },
+      { header: 'near orders', align: 'left' },
+    ],
+    rows,
+  );
+}
+
+function dutyLines(d: CapacitorDuty): string[] {
+  const lim = d.limits;
+  const w = d.worst.figures;
+  const cell = (x: number, limit: number | null) => `${fixed(x, 2)}${limit === null ? '' : ` / ${limit}`}`;
+  return [
+    `  ${fixed(d.ratedV, 0)} V units${d.detuningPercent > 0 ? `, detuned p = ${fixed(d.detuningPercent, 2)} %` : ''}; capacitor fundamental voltage ${fixed(d.capacitorVoltageV, 1)} V; judged against ${d.standard === 'ieee-18' ? 'IEEE 18' : 'IEC 60831-1'}`,
+    renderTable(
+      [{ header: 'worst state', align: 'left' }, { header: 'branch', align: 'left' }, { header: 'V rms pu' }, { header: 'V peak pu' }, { header: 'I rms pu' }, { header: 'kvar pu' }, { header: 'verdict', align: 'left' }],
+      [[d.worst.label, d.worst.branch, cell(w.voltageRms, lim.voltageRms), cell(w.voltagePeak, lim.voltagePeak), cell(w.currentRms, lim.currentRms), cell(w.kvar, lim.kvar), d.ok ? 'within limits in every state' : 'EXCEEDS']],
+    ),
+    `  limits: ${d.limitsSource}`,
+  ];
+}
+
+export function renderHarmonicsReport(r: HarmonicsReport): string {
+  const out: string[] = [];
+  out.push(`${r.board} — harmonics at ${r.frequencyHz} Hz`);
+  out.push(`orders solved: ${r.orders.join(', ') || 'none (no spectrum or background given: linear board)'}; state: ${r.state}`);
+  out.push(section('Currents (rms with harmonics; orders as % of each line’s fundamental)'));
+  out.push(currentTable(r));
+  out.push(section('Voltages and power factor at the board'));
+  out.push(voltageTable(r));
+  out.push(
+    `  board: true PF ${r.powerFactor.true === null ? '-' : fixed(r.powerFactor.true, 3)}, displacement PF ${r.powerFactor.displacement === null ? '-' : fixed(r.powerFactor.displacement, 3)} (ΣP / Σ V·I over the lines)`,
+  );
+  if (r.neutral) {
+    out.push(section('Neutral conductor'));
+    out.push(...neutralLines(r.neutral));
+  }
+  if (r.tdd) {
+    out.push(section('Current distortion at the feed (IEEE 519)'));
+    out.push(...tddLines(r.tdd));
+  }
+  out.push(section(`Resonance with the supply${r.scan.shortCircuitKVA === null ? ' (ideal source: none possible)' : ` (S_sc ${fixed(r.scan.shortCircuitKVA, 0)} kVA)`}`));
+  out.push(scanTable(r.scan));
+  out.push(`  scanned h = ${r.scan.orders[0]} … ${r.scan.orders.at(-1)} (${r.scan.orders.length} points, pairs ${r.scan.pairs.join(' ')}); checked against ${r.scan.checkedOrdersFrom}: ${r.scan.checkedOrders.join(', ')}`);
+  if (r.capacitorDuty) {
+    out.push(section('Capacitor duty with harmonics (every bank state)'));
+    out.push(...dutyLines(r.capacitorDuty));
+  }
+  if (r.spectra.length) {
+    out.push(section('Spectra used'));
+    const seen = new Map<string, string[]>();
+    for (const s of r.spectra) seen.set(`${s.spectrum}: ${s.source}`, [...(seen.get(`${s.spectrum}: ${s.source}`) ?? []), s.load]);
+    for (const [what, loads] of seen) out.push(`  ${what} — ${loads.join(', ')}`);
+  }
+  out.push(section('Assumptions'));
+  out.push(...r.assumptions.map((a) => `  - ${a}`));
+  if (r.warnings.length) {
+    out.push(section('Warnings'));
+    out.push(...r.warnings.map((w) => `  ! ${w.message}`));
+  }
+  out.push(section('Cautions'));
+  out.push(...r.cautions.map((c) => `  - ${c}`));
+  return `${out.join('\n')}\n`;
+}

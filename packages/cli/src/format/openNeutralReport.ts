@@ -1,0 +1,48 @@
+/** The broken-neutral study as a section of `trivar solve`. */
+import { OPEN_NEUTRAL_METHOD, type OpenNeutralLoadReading, type OpenNeutralStudy } from '@trivar/core';
+import { fixed, renderTableWithin } from './textTable.js';
+import { REPORT_WIDTH, wrapText } from './wrapText.js';
+
+const flagWord = (f: OpenNeutralLoadReading['flag']) => (f === 'ok' ? '' : f === 'over' ? 'OVER' : 'under');
+
+export function openNeutralBlock(study: OpenNeutralStudy): string {
+  if (!study.applicable) return wrapText(`not applicable: ${study.note ?? ''}`, '  ');
+  const other = study.otherStates[0];
+  const impedance = study.impedanceModel;
+  const rows = study.loads.map((l, k) => [
+    l.name,
+    l.phase,
+    `${fixed(l.voltage, 1)}${l.belowLowVoltageRule ? '*' : ''}`,
+    fixed(l.voltagePercent, 1),
+    flagWord(l.flag),
+    ...(impedance ? [fixed(impedance.loads[k]!.voltage, 1), fixed(impedance.loads[k]!.voltagePercent, 1)] : []),
+    ...(other ? [fixed(other.loads[k]!.voltage, 1), fixed(other.loads[k]!.voltagePercent, 1)] : []),
+  ]);
+  const table = renderTableWithin(
+    [
+      { header: 'circuit', align: 'left' },
+      { header: 'phase', align: 'left' },
+      { header: 'V' },
+      { header: '%nom' },
+      { header: '', align: 'left' },
+      ...(impedance ? [{ header: 'V if Z' }, { header: '%nom' }] : []),
+      ...(other ? [{ header: 'V alt' }, { header: '%nom' }] : []),
+    ],
+    rows,
+  );
+  const key = [
+    study.reachedFromIntact ? 'V: the state the board reaches' : 'V: the worst state found',
+    ...(impedance ? ['V if Z: every load as a constant impedance'] : []),
+    ...(other ? ['V alt: another solution of the same equations'] : []),
+    ...(study.loads.some((l) => l.belowLowVoltageRule) ? ['*: below the low-voltage rule, taken as an impedance'] : []),
+  ];
+  const bar = study.barVoltage ? `  neutral bar floats to ${fixed(study.barVoltage.magnitude, 1)} V from the source star point` : '';
+  return [
+    wrapText(OPEN_NEUTRAL_METHOD, '  '),
+    ...(bar ? [bar] : []),
+    table,
+    `${wrapText(key.join(' · '), '  (', '   ', REPORT_WIDTH - 1)})`,
+    ...study.findings.map((f) => wrapText(f, '  ! ')),
+    ...study.cautions.map((c) => wrapText(c, '  ! ')),
+  ].join('\n');
+}

@@ -1,0 +1,152 @@
+/**
+ * How each load of a normalised board behaves at harmonic orders, resolved
+ * from the board file: a current source with a spectrum (non-linear), a linear
+ * impedance in series or parallel form, or a detuned capacitor step. Also the
+ * supply's background distortion and the study's settings, with defaults
+ * filled in (harmonicsDefaults.ts).
+ */
+import type { Board, BoardLoad, Terminal } from '../board/boardModel.js';
+import type { BoardSpec } from '../board/boardSchema.js';
+import { degToRad } from '../complex.js';
+import { HARMONICS_DEFAULTS } from './harmonicsDefaults.js';
+import type { HarmonicsSectionSpec, InstalledBankSpec, LinearForm, SpectrumSpec } from './harmonicsSpec.js';
+import { TYPICAL_SPECTRA } from './typicalSpectra.js';
+
+/** One order of a spectrum: magnitude as a fraction of the fundamental, angle relative to h × the fundamental angle. */
+export interface OrderContent {
+  readonly order: number;
+  readonly fraction: number;
+  readonly angleRad: number;
+}
+
+export type LoadBehaviour =
+  | { readonly kind: 'linear'; readonly form: LinearForm }
+  | {
+      readonly kind: 'non-linear';
+      readonly spectrum: readonly OrderContent[];
+      /** The built-in kind, or 'board file' for a spectrum written out. */
+      readonly spectrumName: string;
+      /** Where the figures come from. */
+      readonly source: string;
+    }
+  /** A capacitor step behind a detuning reactor with p = X_L/X_C. */
+  | { readonly kind: 'detuned'; readonly p: number };
+
+/** A capacitor bank on the board: which added loads are its fixed part and its steps. */
+export interface BankModel {
+  readonly connection: 'delta' | 'star';
+  readonly ratedV: number;
+  /** Per step, three-phase rated output, kvar (at rated voltage). */
+  readonly stepsKvar: readonly number[];
+  readonly fixedKvar: number;
+  /** p as a fraction; 0 for a plain bank. */
+  readonly detuning: number;
+  /** Index in `board.loads` of the fixed part (null when there is none) and of each step. */
+  readonly fixedLoad: number | null;
+  readonly stepLoads: readonly number[];
+}
+
+export interface HarmonicModel {
+  /** Per load of the board (with the bank, if any), in the board's order. */
+  readonly loads: readonly LoadBehaviour[];
+  /** Background supply voltage distortion, fraction of the nominal voltage per order. */
+  readonly background: readonly OrderContent[];
+  readonly resistance: 'constant' | 'skin-effect';
+  readonly bank: BankModel | null;
+  readonly pcc: { readonly shortCircuitRatio: number | null; readonly demandCurrentA: number | null } | null;
+  readonly scan: { readonly maxOrder: number; readonly step: number };
+  readonly capacitorStandard: 'ieee-18' | 'iec-60831-1';
+}
+
+function spectrumContent(spec: Exclude<SpectrumSpec, string>): OrderContent[] {
+  return spec.map((e) => ({ order: e.order, fraction: e.percent / 100, angleRad: degToRad(e.angleDeg ?? 0) })).sort((a, b) => a.order - b.order);
+}
+
+function behaviourOf(spec: BoardSpec['loads'][number] | undefined, load: BoardLoad, defaultForm: LinearForm): LoadBehaviour {
+  const spectrum = spec?.spectrum;
+  if (spectrum !== undefined && spectrum !== 'linear') {
+    if (typeof spectrum === 'string') {
+      const typical = TYPICAL_SPECTRA[spectrum];
+      return {
+        kind: 'non-linear',
+        spectrum: typical.orders.map(([order, percent]) => ({ order, fraction: percent / 100, angleRad: 0 })),
+        spectrumName: spectrum,
+        source: `typical: ${typical.source}`,
+      };
+    }
+    return { kind: 'non-linear', spectrum: spectrumContent(spectrum), spectrumName: 'board file', source: 'given in the board file' };
+  }
+  // Loads written in ohms (and equipment added by a study) keep their series R + jX.
+  const form = spec?.linearForm ?? (spec?.ohms || load.origin === 'added' ? 'series' : defaultForm);
+  return { kind: 'linear', form };
+}
+
+/**
+ * Adds an installed bank to a board as one constant-impedance load per part
+ * (fixed part, then each step), all steps on. A detuned step is entered at
+ * its effective fundamental susceptance B_C/(1 − p).
+ */
+export function addInstalledBank(board: Board, bank: InstalledBankSpec): { board: Board; model: BankModel } {
+  const p = (bank.detuningPercent ?? 0) / 100;
+  const star = bank.connection === 'star';
+  const vNominal = star ? board.nominalLineToNeutralV : (board.nominalLineToLineV ?? board.nominalLineToNeutralV);
+  const loads: BoardLoad[] = [];
+  const part = (name: string, kvar: number): number => {
+    const index = board.loads.length + loads.length;
+    const to: Terminal = star ? (board.hasNeutral ? 'N' : `star:${index}`) : 'A';
+    const pairs: [Terminal, Terminal][] = star
+      ? (['A', 'B', 'C'] as const).map((ph) => [ph, to])
+      : [
+          ['A', 'B'],
+          ['B', 'C'],
+          ['C', 'A'],
+        ];
+    const bCapacitor = (kvar * 1000) / 3 / bank.ratedV ** 2;
+    const bEffective = bCapacitor / (1 - p);
+    loads.push({
+      name,
+      connection: star ? 'ABC-star' : 'ABC-delta',
+      model: 'constant-impedance',
+      origin: 'added',
+      branches: pairs.map(([from, t]) => ({ from, to: t, sNominal: { re: 0, im: -bEffective * vNominal * vNominal }, vNominal, zip: { z: 1, i: 0, p: 0 } })),
+    });
+    return index;
+  };
+  const fixedKvar = bank.fixedKvar ?? 0;
+  const fixedLoad = fixedKvar > 0 ? part('bank fixed part', fixedKvar) : null;
+  const stepLoads = bank.stepsKvar.map((kvar, k) => part(`bank step ${k + 1}`, kvar));
+  return {
+    board: { ...board, loads: [...board.loads, ...loads] },
+    model: { connection: bank.connection, ratedV: bank.ratedV, stepsKvar: bank.stepsKvar, fixedKvar, detuning: p, fixedLoad, stepLoads },
+  };
+}
+
+/**
+ * Resolves the harmonic behaviour of every load of `board` (normalised from
+ * `spec`, the bank already added when there is one) and the study settings.
+ */
+export function resolveHarmonicModel(spec: BoardSpec, board: Board, bank: BankModel | null): HarmonicModel {
+  const section: HarmonicsSectionSpec = spec.harmonics ?? {};
+  const defaultForm = section.linearForm ?? HARMONICS_DEFAULTS.linearForm;
+  const bankLoads = new Set(bank ? [...(bank.fixedLoad === null ? [] : [bank.fixedLoad]), ...bank.stepLoads] : []);
+  const loads = board.loads.map((load, i): LoadBehaviour => {
+    if (bankLoads.has(i) && bank && bank.detuning > 0) return { kind: 'detuned', p: bank.detuning };
+    return behaviourOf(load.origin === 'board' ? spec.loads[i] : undefined, load, defaultForm);
+  });
+  return {
+    loads,
+    background: section.background ? spectrumContent(section.background) : [],
+    resistance: section.resistance ?? HARMONICS_DEFAULTS.resistance,
+    bank,
+    pcc: section.pcc ? { shortCircuitRatio: section.pcc.shortCircuitRatio ?? null, demandCurrentA: section.pcc.demandCurrentA ?? null } : null,
+    scan: { maxOrder: section.scan?.maxOrder ?? HARMONICS_DEFAULTS.scanMaxOrder, step: section.scan?.step ?? HARMONICS_DEFAULTS.scanStep },
+    capacitorStandard: section.capacitorStandard ?? (board.frequencyHz === 60 ? 'ieee-18' : 'iec-60831-1'),
+  };
+}
+
+/** Every order something injects or the supply carries, ascending. */
+export function ordersPresent(model: HarmonicModel): number[] {
+  const orders = new Set<number>(model.background.map((b) => b.order));
+  for (const load of model.loads) if (load.kind === 'non-linear') for (const o of load.spectrum) orders.add(o.order);
+  return [...orders].sort((a, b) => a - b);
+}

@@ -1,0 +1,181 @@
+/**
+ * What the harmonic study returns: plain JSON-serialisable data, the same for
+ * the library and `trivar harmonics --json`.
+ */
+import type { PhaseId } from '../board/boardModel.js';
+
+/** One harmonic order of a quantity. */
+export interface OrderReading {
+  readonly order: number;
+  /** rms magnitude, A or V. */
+  readonly magnitude: number;
+  /** % of the fundamental of the same quantity. */
+  readonly percentOfFundamental: number;
+  readonly angleDeg: number;
+}
+
+/** A waveform by its orders: rms, fundamental, THD and each order ≥ 2. */
+export interface DistortionReading {
+  readonly rms: number;
+  readonly fundamental: number;
+  /** √Σ_{h≥2} X_h² / X_1, %; null when the fundamental is zero. */
+  readonly thdPercent: number | null;
+  readonly orders: readonly OrderReading[];
+}
+
+export interface HarmonicLineReading {
+  readonly phase: PhaseId;
+  readonly current: DistortionReading;
+  /** Voltage to the neutral bar (4-wire, split- and single-phase) or to the centroid of the line voltages (3-wire). */
+  readonly voltage: DistortionReading;
+  /** Active power through all orders, kW. */
+  readonly kW: number;
+  /** P / (V_rms · I_rms). */
+  readonly truePf: number | null;
+  /** cos(angle V1 − angle I1). */
+  readonly displacementPf: number | null;
+}
+
+export interface NeutralCheck {
+  readonly current: DistortionReading;
+  /** Zero-sequence orders (3, 9, 15…) as a share of the neutral's rms², %. */
+  readonly triplenSharePercent: number | null;
+  /** Neutral rms / largest line rms. */
+  readonly ratioToPhase: number | null;
+  readonly ratingA: number | null;
+  readonly loadingPercent: number | null;
+  readonly overloaded: boolean;
+  /** The usual sizing practice for neutrals feeding non-linear loads, in words. */
+  readonly practice: string;
+}
+
+export interface TddLine {
+  readonly phase: PhaseId;
+  readonly tddPercent: number;
+  readonly orders: readonly { readonly order: number; readonly percentOfDemand: number; readonly limitPercent: number; readonly ok: boolean }[];
+  readonly ok: boolean;
+}
+
+export interface TddCheck {
+  readonly shortCircuitRatio: number;
+  readonly shortCircuitRatioFrom: 'board file' | 'source impedance';
+  readonly demandCurrentA: number;
+  readonly demandCurrentFrom: 'board file' | 'solved fundamental line current';
+  /** The row of the IEEE 519 table used, e.g. `20 < 50`. */
+  readonly tableRow: string;
+  readonly tddLimitPercent: number;
+  readonly lines: readonly TddLine[];
+  readonly ok: boolean;
+  readonly source: string;
+}
+
+export interface ScanPeak {
+  /** Terminal pair the impedance is seen between: `A-N`, `A-B`... */
+  readonly pair: string;
+  /** Peak order, refined between grid points. */
+  readonly order: number;
+  readonly impedanceOhm: number;
+}
+
+export interface ScanCombination {
+  /** Which steps are on, in step order. */
+  readonly steps: readonly boolean[];
+  /** In words: `no bank`, `fixed part`, `steps 1+3`… */
+  readonly label: string;
+  /** Effective fundamental output of what is on, at nominal voltage, three-phase kvar. */
+  readonly capacitorKvar: number;
+  /** √(S_sc/Q_c); null without a source impedance, without capacitors, or for a detuned bank (the formula does not apply). */
+  readonly formulaOrder: number | null;
+  /** |Z| per pair, per scanned order, ohm, rounded to 1e-6 of the curve's largest value (plotting data). */
+  readonly impedanceOhm: readonly (readonly number[])[];
+  readonly peaks: readonly ScanPeak[];
+  /** Injected (or watched) orders within ±10 % of a peak. */
+  readonly nearOrders: readonly number[];
+}
+
+export interface ResonanceScan {
+  readonly orders: readonly number[];
+  readonly pairs: readonly string[];
+  /** Short-circuit power at the board from the source and feeder impedance, kVA; null on an ideal source. */
+  readonly shortCircuitKVA: number | null;
+  /** Orders a resonance is checked against: those injected or on the supply, else 3, 5, 7, 11, 13. */
+  readonly checkedOrders: readonly number[];
+  readonly checkedOrdersFrom: 'spectra and background' | 'characteristic orders (no spectrum given)';
+  readonly combinations: readonly ScanCombination[];
+  /** How loads enter the scan, in words. */
+  readonly basis: string;
+}
+
+export interface DutyFigures {
+  /** Per unit of the capacitor rating. */
+  readonly voltageRms: number;
+  readonly voltagePeak: number;
+  readonly currentRms: number;
+  readonly kvar: number;
+}
+
+export interface DutyLimits {
+  readonly voltageRms: number;
+  readonly voltagePeak: number | null;
+  readonly currentRms: number;
+  readonly kvar: number | null;
+}
+
+export interface DutyCase {
+  readonly label: string;
+  readonly steps: readonly boolean[];
+  /** The worst branch of the bank in this state. */
+  readonly branch: string;
+  readonly figures: DutyFigures;
+  readonly ok: boolean;
+}
+
+export interface CapacitorDuty {
+  readonly standard: 'ieee-18' | 'iec-60831-1';
+  readonly limits: DutyLimits;
+  readonly limitsSource: string;
+  readonly ratedV: number;
+  readonly detuningPercent: number;
+  /** Fundamental voltage across the capacitors at nominal network voltage, V (U/(1 − p) when detuned). */
+  readonly capacitorVoltageV: number;
+  readonly cases: readonly DutyCase[];
+  readonly worst: DutyCase;
+  readonly ok: boolean;
+}
+
+export interface HarmonicsWarning {
+  readonly code: string;
+  readonly message: string;
+  readonly value: number | null;
+  readonly threshold: number | null;
+}
+
+export interface LoadSpectrumNote {
+  readonly load: string;
+  readonly spectrum: string;
+  readonly source: string;
+  /** Current THD of the load's own spectrum, %. */
+  readonly thdPercent: number;
+}
+
+export interface HarmonicsReport {
+  readonly board: string;
+  readonly frequencyHz: number;
+  /** Orders solved (≥ 2). */
+  readonly orders: readonly number[];
+  /** The state the line, neutral and voltage figures are for. */
+  readonly state: string;
+  readonly lines: readonly HarmonicLineReading[];
+  readonly lineToLine: readonly { readonly pair: string; readonly voltage: DistortionReading }[];
+  readonly neutral: NeutralCheck | null;
+  /** Board figures, arithmetic over the lines: ΣP / Σ(V·I). */
+  readonly powerFactor: { readonly true: number | null; readonly displacement: number | null };
+  readonly tdd: TddCheck | null;
+  readonly scan: ResonanceScan;
+  readonly capacitorDuty: CapacitorDuty | null;
+  readonly spectra: readonly LoadSpectrumNote[];
+  /** Defaults and modelling choices used, in words. */
+  readonly assumptions: readonly string[];
+  readonly warnings: readonly HarmonicsWarning[];
+  readonly cautions: readonly string[];
+}

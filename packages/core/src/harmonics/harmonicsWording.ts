@@ -1,0 +1,31 @@
+/**
+ * All wording of the harmonic study: warnings, the neutral sizing note,
+ * assumptions and cautions, in one place.
+ */
+const pct = (x: number) => `${x.toFixed(1)} %`;
+
+export const NEUTRAL_PRACTICE =
+  'with mostly non-linear single-phase loads the neutral carries the triplen currents of all three phases and is counted as a current-carrying conductor (NEC 310.15, confirmed for the 2008 numbering); a neutral of twice the phase size is the usual practice for such feeders (IEEE Std 1100, from memory)';
+
+export const harmonicsWarningText = {
+  neutralOverload: (rms: number, rating: number) =>
+    `the neutral carries ${rms.toFixed(1)} A rms including harmonics, above its ${rating.toFixed(0)} A rating: it overheats without tripping anything (no overcurrent device protects a neutral)`,
+  neutralAbovePhase: (ratio: number) =>
+    `the neutral current is ${ratio.toFixed(2)} × the largest line current: triplen harmonics add in the neutral instead of cancelling`,
+  resonance: (states: readonly string[], peak: number, order: number) =>
+    `resonance with the supply at h ≈ ${peak.toFixed(2)}, within ±10 % of order ${order}, with the bank at ${states.length > 3 ? `${states.slice(0, 3).join(', ')} and ${states.length - 3} more state(s)` : states.join(', ')}: voltages and capacitor currents are amplified there`,
+  capacitorDuty: (label: string, branch: string, what: string) => `with ${label} the capacitors of branch ${branch} exceed their limit: ${what}`,
+  voltageThd: (phase: string, thd: number, limit: number) => `voltage THD at the board on ${phase} is ${pct(thd)}, above the ${limit} % IEEE 519 limit for ≤ 1 kV`,
+  tdd: (phase: string, tdd: number, limit: number, orders: readonly number[]) =>
+    `line ${phase}: TDD ${pct(tdd)} (IEEE 519 limit ${limit} % for this short-circuit ratio)${orders.length ? `; order${orders.length > 1 ? 's' : ''} ${orders.join(', ')} above the individual limits` : ''}`,
+  idealSource: 'the supply has no impedance in the board file: harmonic currents make no voltage distortion and no bank can resonate with it — give supply.transformer or supply.impedance for a real answer',
+  noBank: 'no bank in harmonics.bank: the scan shows the board as it is',
+};
+
+export const HARMONICS_CAUTIONS: readonly string[] = [
+  'Harmonic resonance can overload capacitors until they fail, rupture or catch fire; check every step combination before energising a bank.',
+  'Neutrals of boards with non-linear loads can overheat without any protective device tripping; measure neutral current with a true-rms meter.',
+  'Built-in spectra are typical values, not measurements: measure the real loads (true-rms, per order) before buying or rebuilding a bank.',
+  'Capacitors stay charged after disconnection: wait the rated discharge time, then short and earth every terminal before touching.',
+  'These results support, and do not replace, the judgement of a licensed professional and the local electrical codes.',
+];

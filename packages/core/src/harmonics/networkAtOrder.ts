@@ -1,0 +1,83 @@
+/**
+ * The board at order h: every element scaled to h·f and the non-linear loads
+ * turned into current sources, then one linear solve by the network solver
+ * (`solveFixedNetwork`) — the same nodes and elements as the fundamental.
+ *
+ * Scaling: inductive reactance × h, capacitive reactance / h; resistance
+ * constant (or × √h for source and feeder with `skin-effect`). Linear loads
+ * start from the admittance the fundamental solve converged to, in series
+ * (R + jX) or parallel (G + jB) form; detuned steps follow detuning.ts.
+ */
+import { abs, complex, inverse, polar, arg, ZERO, type ComplexValue } from '../complex.js';
+import type { Board } from '../board/boardModel.js';
+import type { NetworkSolution } from '../network/solveNetwork.js';
+import { solveFixedNetwork } from '../network/solveFixedNetwork.js';
+import type { HarmonicModel, LoadBehaviour } from './harmonicModel.js';
+import { detunedSusceptance } from './detuning.js';
+
+/** Scales a series impedance R + jX to order h. */
+export function impedanceAtOrder(z: ComplexValue, h: number, resistance: HarmonicModel['resistance'] = 'constant'): ComplexValue {
+  const r = resistance === 'skin-effect' ? z.re * Math.sqrt(h) : z.re;
+  return complex(r, z.im >= 0 ? z.im * h : z.im / h);
+}
+
+/** Admittance of a linear or detuned branch at order h from its fundamental admittance y1. */
+export function branchAdmittanceAtOrder(y1: ComplexValue, behaviour: LoadBehaviour, h: number): ComplexValue {
+  if (abs(y1) === 0) return ZERO;
+  switch (behaviour.kind) {
+    case 'non-linear':
+      return ZERO;
+    case 'detuned':
+      return complex(0, detunedSusceptance(y1.im, behaviour.p, h));
+    case 'linear':
+      if (behaviour.form === 'parallel') return complex(y1.re, y1.im < 0 ? y1.im / h : y1.im * h);
+      return inverse(impedanceAtOrder(inverse(y1), h));
+  }
+}
+
+/** The supply EMFs of order h: the background distortion with each phase at h × its fundamental angle. */
+function emfAtOrder(board: Board, model: HarmonicModel, h: number): ComplexValue[] {
+  const content = model.background.find((b) => b.order === h);
+  return board.emf.map((e) => (content ? polar(board.nominalLineToNeutralV * content.fraction, h * arg(e) + content.angleRad) : ZERO));
+}
+
+/** Per load, per branch: the harmonic current a non-linear load draws at order h (from → to), or null. */
+export function injectionsAtOrder(fundamental: NetworkSolution, model: HarmonicModel, h: number): (ComplexValue | null)[][] {
+  return fundamental.board.loads.map((load, l) => {
+    const behaviour = model.loads[l]!;
+    const content = behaviour.kind === 'non-linear' ? behaviour.spectrum.find((o) => o.order === h) : undefined;
+    return load.branches.map((_, k) => {
+      if (!content) return null;
+      const i1 = fundamental.branches[l]![k]!.current;
+      return polar(abs(i1) * content.fraction, h * arg(i1) + content.angleRad);
+    });
+  });
+}
+
+/** The board with its supply and conductors at order h. */
+export function boardAtOrder(board: Board, model: HarmonicModel, h: number): Board {
+  return {
+    ...board,
+    emf: emfAtOrder(board, model, h),
+    sourceImpedance: impedanceAtOrder(board.sourceImpedance, h, model.resistance),
+    lineImpedance: impedanceAtOrder(board.lineImpedance, h, model.resistance),
+    neutralImpedance: impedanceAtOrder(board.neutralImpedance, h, model.resistance),
+  };
+}
+
+/** Per load, per branch admittance at order h. */
+export function admittancesAtOrder(fundamental: NetworkSolution, model: HarmonicModel, h: number): ComplexValue[][] {
+  return fundamental.branches.map((branches, l) => branches.map((b) => branchAdmittanceAtOrder(b.admittance, model.loads[l]!, h)));
+}
+
+/**
+ * Solves the board at integer order h ≥ 2 given its fundamental solution.
+ * @throws {NumericalError} when the network is singular at that order.
+ */
+export function solveAtOrder(fundamental: NetworkSolution, model: HarmonicModel, h: number): NetworkSolution {
+  return solveFixedNetwork(boardAtOrder(fundamental.board, model, h), {
+    admittances: admittancesAtOrder(fundamental, model, h),
+    branchSources: injectionsAtOrder(fundamental, model, h),
+  });
+}
+

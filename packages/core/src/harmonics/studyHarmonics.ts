@@ -1,0 +1,233 @@
+/**
+ * The harmonic study in one call: solve the fundamental, then the board at
+ * every order present (networkAtOrder.ts), read lines, neutral, voltages and
+ * power factors, judge TDD, scan the resonance for every step combination and
+ * check the capacitor duty in each.
+ */
+import { parseBoard } from '../board/validateBoard.js';
+import { normaliseBoard } from '../board/normaliseBoard.js';
+import type { Board, BoardLoad } from '../board/boardModel.js';
+import { abs, add } from '../complex.js';
+import { InputError, inputIssue } from '../errors.js';
+import { solveNetwork, type NetworkSolution, type SolveOptions } from '../network/solveNetwork.js';
+import { addInstalledBank, ordersPresent, resolveHarmonicModel, type BankModel, type HarmonicModel } from './harmonicModel.js';
+import { solveAtOrder } from './networkAtOrder.js';
+import { readLines, readLineToLine, readNeutral, type OrderSolution } from './readHarmonics.js';
+import { combinationLabel, scanResonance, stepCombinations } from './scanResonance.js';
+import { DUTY_LIMITS, dutyCase, dutyRatio } from './capacitorDuty.js';
+import { IEEE_519_SOURCE, IEEE_519_VOLTAGE_LIMITS, ieee519OrderLimit, ieee519Row } from './ieee519.js';
+import { HARMONICS_DEFAULTS } from './harmonicsDefaults.js';
+import { HARMONICS_CAUTIONS, harmonicsWarningText, NEUTRAL_PRACTICE } from './harmonicsWording.js';
+import type { CapacitorDuty, DutyCase, HarmonicLineReading, HarmonicsReport, HarmonicsWarning, NeutralCheck, ResonanceScan, TddCheck } from './harmonicsResult.js';
+
+export interface HarmonicsOptions {
+  /** Passed to the fundamental solve. @defaultValue solver defaults */
+  readonly solve?: SolveOptions;
+  /** Scan grid override (orders), e.g. for a benchmark. @defaultValue from the board file's harmonics.scan */
+  readonly scanOrders?: readonly number[];
+}
+
+/** Solves the fundamental and every order present. */
+export function solveHarmonicOrders(board: Board, model: HarmonicModel, solve?: SolveOptions): OrderSolution[] {
+  const fundamental = solveNetwork(board, solve);
+  return [{ order: 1, solution: fundamental }, ...ordersPresent(model).map((h) => ({ order: h, solution: solveAtOrder(fundamental, model, h) }))];
+}
+
+/** The board with the bank's steps switched as given (an off step draws nothing). */
+export function withSteps(board: Board, bank: BankModel, steps: readonly boolean[]): Board {
+  const off = new Set(bank.stepLoads.filter((_, k) => !steps[k]));
+  return { ...board, loads: board.loads.map((l, i): BoardLoad => (off.has(i) ? { ...l, branches: l.branches.map((b) => ({ ...b, sNominal: { re: 0, im: 0 } })) } : l)) };
+}
+
+function neutralCheck(board: Board, orders: readonly OrderSolution[], lines: readonly HarmonicLineReading[]): NeutralCheck | null {
+  const current = readNeutral(orders);
+  if (!current) return null;
+  const triplen = current.orders.filter((o) => o.order % 3 === 0).reduce((s, o) => s + o.magnitude ** 2, 0);
+  const largest = Math.max(...lines.map((l) => l.current.rms));
+  const rating = board.neutralRatingA;
+  return {
+    current,
+    triplenSharePercent: current.rms > 0 ? (100 * triplen) / current.rms ** 2 : null,
+    ratioToPhase: largest > 0 ? current.rms / largest : null,
+    ratingA: rating,
+    loadingPercent: rating ? (100 * current.rms) / rating : null,
+    overloaded: rating !== null && current.rms > rating,
+    practice: NEUTRAL_PRACTICE,
+  };
+}
+
+function tddCheck(board: Board, model: HarmonicModel, lines: readonly HarmonicLineReading[]): TddCheck | null {
+  if (!model.pcc) return null;
+  const demand = model.pcc.demandCurrentA ?? Math.max(...lines.map((l) => l.current.fundamental));
+  const zSource = abs(add(board.sourceImpedance, board.lineImpedance));
+  const ratio = model.pcc.shortCircuitRatio ?? (zSource > 0 && demand > 0 ? board.nominalLineToNeutralV / zSource / demand : null);
+  if (ratio === null || !(demand > 0)) return null;
+  const row = ieee519Row(ratio);
+  const tddLines = lines.map((l) => {
+    const orders = l.current.orders.map((o) => {
+      const percentOfDemand = (100 * o.magnitude) / demand;
+      const limitPercent = ieee519OrderLimit(ratio, o.order);
+      return { order: o.order, percentOfDemand, limitPercent, ok: percentOfDemand <= limitPercent };
+    });
+    const tddPercent = (100 * Math.sqrt(l.current.orders.reduce((s, o) => s + o.magnitude ** 2, 0))) / demand;
+    return { phase: l.phase, tddPercent, orders, ok: tddPercent <= row.tddPercent && orders.every((o) => o.ok) };
+  });
+  return {
+    shortCircuitRatio: ratio,
+    shortCircuitRatioFrom: model.pcc.shortCircuitRatio !== null ? 'board file' : 'source impedance',
+    demandCurrentA: demand,
+    demandCurrentFrom: model.pcc.demandCurrentA !== null ? 'board file' : 'solved fundamental line current',
+    tableRow: row.label,
+    tddLimitPercent: row.tddPercent,
+    lines: tddLines,
+    ok: tddLines.every((l) => l.ok),
+    source: IEEE_519_SOURCE,
+  };
+}
+
+function checkedOrders(model: HarmonicModel): Pick<ResonanceScan, 'checkedOrders' | 'checkedOrdersFrom'> {
+  const present = ordersPresent(model);
+  return present.length
+    ? { checkedOrders: present, checkedOrdersFrom: 'spectra and background' }
+    : { checkedOrders: [...HARMONICS_DEFAULTS.watchedOrders], checkedOrdersFrom: 'characteristic orders (no spectrum given)' };
+}
+
+function capacitorDuty(board: Board, model: HarmonicModel, solve?: SolveOptions): CapacitorDuty | null {
+  const bank = model.bank;
+  if (!bank) return null;
+  const { limits, source } = DUTY_LIMITS[model.capacitorStandard];
+  const cases: DutyCase[] = [];
+  for (const steps of stepCombinations(bank.stepLoads.length)) {
+    const orders = solveHarmonicOrders(withSteps(board, bank, steps), model, solve);
+    const c = dutyCase(orders, bank, steps, combinationLabel(bank, steps), limits);
+    if (c) cases.push(c);
+  }
+  if (cases.length === 0) return null;
+  const worst = cases.reduce((w, c) => (dutyRatio(c.figures, limits) > dutyRatio(w.figures, limits) ? c : w));
+  const vNetwork = bank.connection === 'star' ? board.nominalLineToNeutralV : (board.nominalLineToLineV ?? board.nominalLineToNeutralV);
+  return {
+    standard: model.capacitorStandard,
+    limits,
+    limitsSource: source,
+    ratedV: bank.ratedV,
+    detuningPercent: bank.detuning * 100,
+    capacitorVoltageV: vNetwork / (1 - bank.detuning),
+    cases,
+    worst,
+    ok: cases.every((c) => c.ok),
+  };
+}
+
+function assumptions(model: HarmonicModel): string[] {
+  const forms = new Set(model.loads.flatMap((l) => (l.kind === 'linear' ? [l.form] : [])));
+  return [
+    `linear loads as ${[...forms].join(' and ') || 'none'} R/X from their solved fundamental values (rated loads default to parallel R ‖ jX, loads in ohms and capacitors keep series form)`,
+    'non-linear loads as ideal current sources; injection angle = spectrum angle + h × the angle of the load’s fundamental current',
+    `source and feeder resistance ${model.resistance === 'constant' ? 'constant with frequency' : '× √h (skin effect)'}; reactances × h (inductive) or / h (capacitive)`,
+    model.background.length ? 'background supply distortion at each phase with h × the phase angle of its EMF' : 'no background supply distortion (the supply EMF is sinusoidal)',
+  ];
+}
+
+function dutyMessage(c: DutyCase, limits: CapacitorDuty['limits']): string {
+  const parts: string[] = [];
+  const f = c.figures;
+  if (f.voltageRms > limits.voltageRms) parts.push(`rms voltage ${f.voltageRms.toFixed(2)} pu > ${limits.voltageRms}`);
+  if (limits.voltagePeak !== null && f.voltagePeak > limits.voltagePeak) parts.push(`peak voltage ${f.voltagePeak.toFixed(2)} pu > ${limits.voltagePeak}`);
+  if (f.currentRms > limits.currentRms) parts.push(`rms current ${f.currentRms.toFixed(2)} pu > ${limits.currentRms}`);
+  if (limits.kvar !== null && f.kvar > limits.kvar) parts.push(`kvar ${f.kvar.toFixed(2)} pu > ${limits.kvar}`);
+  return parts.join(', ');
+}
+
+/**
+ * Runs the harmonic study on a normalised board and its resolved model.
+ * @throws {NumericalError} when a solve fails
+ */
+export function analyseHarmonics(board: Board, model: HarmonicModel, options: HarmonicsOptions = {}): HarmonicsReport {
+  const orders = solveHarmonicOrders(board, model, options.solve);
+  const fundamental: NetworkSolution = orders[0]!.solution;
+  const lines = readLines(orders);
+  const neutral = neutralCheck(board, orders, lines);
+  const tdd = tddCheck(board, model, lines);
+  const scan = scanResonance(fundamental, model, { ...checkedOrders(model), ...(options.scanOrders ? { grid: options.scanOrders } : {}) });
+  const duty = capacitorDuty(board, model, options.solve);
+  const warnings: HarmonicsWarning[] = [];
+  const warn = (code: string, message: string, value: number | null = null, threshold: number | null = null) => warnings.push({ code, message, value, threshold });
+  if (scan.shortCircuitKVA === null) warn('ideal-source', harmonicsWarningText.idealSource);
+  if (neutral?.overloaded) warn('neutral-overload', harmonicsWarningText.neutralOverload(neutral.current.rms, neutral.ratingA!), neutral.current.rms, neutral.ratingA);
+  if (neutral?.ratioToPhase !== null && neutral?.ratioToPhase !== undefined && neutral.ratioToPhase > 1)
+    warn('neutral-above-phase', harmonicsWarningText.neutralAbovePhase(neutral.ratioToPhase), neutral.ratioToPhase, 1);
+  for (const l of lines)
+    if (l.voltage.thdPercent !== null && l.voltage.thdPercent > IEEE_519_VOLTAGE_LIMITS.thdPercent)
+      warn('voltage-thd', harmonicsWarningText.voltageThd(l.phase, l.voltage.thdPercent, IEEE_519_VOLTAGE_LIMITS.thdPercent), l.voltage.thdPercent, IEEE_519_VOLTAGE_LIMITS.thdPercent);
+  // One warning per order at risk, naming every bank state that resonates near it.
+  for (const o of scan.checkedOrders) {
+    const hits = scan.combinations.flatMap((c) => {
+      if (!c.nearOrders.includes(o)) return [];
+      const peak = c.peaks.reduce((best, p) => (Math.abs(p.order - o) < Math.abs(best.order - o) ? p : best));
+      return [{ label: c.label, order: peak.order }];
+    });
+    if (hits.length === 0) continue;
+    const closest = hits.reduce((b, x) => (Math.abs(x.order - o) < Math.abs(b.order - o) ? x : b));
+    warn('resonance', harmonicsWarningText.resonance(hits.map((x) => x.label), closest.order, o), closest.order, o);
+  }
+  if (duty) for (const c of duty.cases) if (!c.ok) warn('capacitor-duty', harmonicsWarningText.capacitorDuty(c.label, c.branch, dutyMessage(c, duty.limits)), dutyRatio(c.figures, duty.limits), 1);
+  if (tdd)
+    for (const l of tdd.lines) {
+      const over = l.orders.filter((o) => !o.ok).map((o) => o.order);
+      if (l.tddPercent > tdd.tddLimitPercent || over.length)
+        warn('tdd', harmonicsWarningText.tdd(l.phase, l.tddPercent, tdd.tddLimitPercent, over), l.tddPercent, tdd.tddLimitPercent);
+    }
+  const watts = lines.reduce((s, l) => s + l.kW * 1000, 0);
+  const apparent = lines.reduce((s, l) => s + l.voltage.rms * l.current.rms, 0);
+  const p1 = orders[0]!;
+  const fundamentalLines = readLines([p1]);
+  const apparent1 = fundamentalLines.reduce((s, l) => s + l.voltage.rms * l.current.rms, 0);
+  return {
+    board: board.name,
+    frequencyHz: board.frequencyHz,
+    orders: orders.slice(1).map((o) => o.order),
+    state: model.bank ? `every bank step on (${combinationLabel(model.bank, model.bank.stepLoads.map(() => true))})` : 'as given',
+    lines,
+    lineToLine: readLineToLine(orders),
+    neutral,
+    powerFactor: {
+      true: apparent > 0 ? watts / apparent : null,
+      displacement: apparent1 > 0 ? fundamentalLines.reduce((s, l) => s + l.kW * 1000, 0) / apparent1 : null,
+    },
+    tdd,
+    scan,
+    capacitorDuty: duty,
+    spectra: board.loads.flatMap((load, i) => {
+      const b = model.loads[i]!;
+      if (b.kind !== 'non-linear') return [];
+      return [{ load: load.name, spectrum: b.spectrumName, source: b.source, thdPercent: 100 * Math.sqrt(b.spectrum.reduce((s, o) => s + o.fraction ** 2, 0)) }];
+    }),
+    assumptions: assumptions(model),
+    warnings,
+    cautions: HARMONICS_CAUTIONS,
+  };
+}
+
+/** A bank's steps are three-phase, so it needs a three-phase board. */
+function checkBank(spec: ReturnType<typeof parseBoard>, board: Board): void {
+  if (spec.harmonics?.bank && board.phases.length !== 3)
+    throw new InputError([inputIssue('not_applicable', 'harmonics.bank', 'a bank on a three-phase board (its steps are three-phase)', board.system)]);
+}
+
+/**
+ * Validates a board file and runs its harmonic study (`harmonics:` section,
+ * load `spectrum` fields).
+ * @throws {InputError} listing every problem, each with its field path
+ * @throws {NumericalError} when a solve fails
+ * @example
+ * const report = studyHarmonics(boardObject);
+ * report.neutral?.ratioToPhase //=> 1.7 for balanced switch-mode loads (typical spectrum)
+ */
+export function studyHarmonics(input: unknown, options: HarmonicsOptions = {}): HarmonicsReport {
+  const spec = parseBoard(input);
+  const plain = normaliseBoard(spec);
+  checkBank(spec, plain);
+  const withBank = spec.harmonics?.bank ? addInstalledBank(plain, spec.harmonics.bank) : { board: plain, model: null };
+  const model = resolveHarmonicModel(spec, withBank.board, withBank.model);
+  return analyseHarmonics(withBank.board, model, options);
+}

@@ -1,0 +1,105 @@
+/**
+ * One linear solve of a board with branch admittances given by the caller and,
+ * optionally, an ideal current source across each branch. This is how a study
+ * solves the board at another frequency (harmonic order h: the caller scales
+ * the reactances and supplies the EMFs of that order) without a second
+ * topology: the board is compiled like every solve (compileBoard), the given
+ * admittances replace the load model and the sources enter as node injections.
+ */
+import { add, mul, sub, ZERO, isFiniteComplex, type ComplexValue } from '../complex.js';
+import { NumericalError } from '../errors.js';
+import type { Board } from '../board/boardModel.js';
+import { REFERENCE } from './networkTopology.js';
+import { compileBoard, type BranchState, type NetworkSolution } from './solveNetwork.js';
+
+export interface FixedNetworkInput {
+  /** Per load, per branch: the admittance to use, S. */
+  readonly admittances: readonly (readonly ComplexValue[])[];
+  /**
+   * Per load, per branch: current of an ideal current source in parallel with
+   * the branch, flowing from → to through the load like its own current, A;
+   * null (or a missing list) for none. A non-linear load at a harmonic order is
+   * such a source with a zero admittance beside it.
+   */
+  readonly branchSources?: readonly (readonly (ComplexValue | null)[] | undefined)[];
+}
+
+/**
+ * Solves `board` as a linear network with fixed admittances and branch current
+ * sources. The board's EMFs, source, line and neutral impedances are used as
+ * given (a harmonic study passes a board whose values are those of order h).
+ * Branch currents in the result include the source current; branch
+ * `admittance` is the admittance given.
+ * @throws {NumericalError} when the network is singular.
+ */
+export function solveFixedNetwork(board: Board, input: FixedNetworkInput): NetworkSolution {
+  const { topology: topo, network: net } = compileBoard(board);
+  const sourceOf = (l: number, k: number) => input.branchSources?.[l]?.[k] ?? null;
+  let index = 0;
+  board.loads.forEach((load, l) =>
+    load.branches.forEach((b, k) => {
+      const y = input.admittances[l]![k]!;
+      net.admittanceRe[index] = y.re;
+      net.admittanceIm[index] = y.im;
+      index++;
+      const j = sourceOf(l, k);
+      if (!j) return;
+      // The source draws j out of `from` and returns it into `to`.
+      const from = topo.terminalNode.get(b.from)!;
+      const to = topo.terminalNode.get(b.to)!;
+      if (from !== REFERENCE) {
+        net.injectionRe[from] = net.injectionRe[from]! - j.re;
+        net.injectionIm[from] = net.injectionIm[from]! - j.im;
+      }
+      if (to !== REFERENCE) {
+        net.injectionRe[to] = net.injectionRe[to]! + j.re;
+        net.injectionIm[to] = net.injectionIm[to]! + j.im;
+      }
+    }),
+  );
+  net.solveLinear();
+  const nodeVoltages = Array.from({ length: net.nodeCount }, (_, v): ComplexValue | null => (net.live[v] ? { re: net.voltageRe[v]!, im: net.voltageIm[v]! } : null));
+  for (const v of nodeVoltages)
+    if (v && !isFiniteComplex(v)) throw new NumericalError('non-finite', 'the solve produced a non-finite voltage; check for extreme impedance values');
+  const voltageAt = (node: number) => (node === REFERENCE ? ZERO : nodeVoltages[node]);
+  const branches = board.loads.map((load, l) =>
+    load.branches.map((b, k): BranchState => {
+      const admittance = input.admittances[l]![k]!;
+      const vf = voltageAt(topo.terminalNode.get(b.from)!);
+      const vt = voltageAt(topo.terminalNode.get(b.to)!);
+      if (!vf || !vt) return { voltage: ZERO, current: ZERO, admittance, energised: false };
+      const voltage = sub(vf, vt);
+      return { voltage, current: add(mul(admittance, voltage), sourceOf(l, k) ?? ZERO), admittance, energised: true };
+    }),
+  );
+  // Behind a line impedance the line current is Y·(E − V_bus); an ideal source feeds its bus by KCL.
+  const lineCurrents = topo.busNode.map((bus, k) => {
+    if (topo.lineAdmittance) return mul(topo.lineAdmittance, sub(board.emf[k]!, nodeVoltages[bus]!));
+    let out = ZERO;
+    board.loads.forEach((load, l) =>
+      load.branches.forEach((b, i) => {
+        const current = branches[l]![i]!.current;
+        if (topo.terminalNode.get(b.from) === bus) out = add(out, current);
+        if (topo.terminalNode.get(b.to) === bus) out = sub(out, current);
+      }),
+    );
+    return out;
+  });
+  let neutralCurrent: ComplexValue | null = null;
+  if (board.hasNeutral) {
+    if (board.neutralOpen) neutralCurrent = ZERO;
+    else if (topo.neutralAdmittance) neutralCurrent = mul(topo.neutralAdmittance, voltageAt(topo.neutralNode!) ?? ZERO);
+    else {
+      let total = ZERO;
+      board.loads.forEach((load, l) =>
+        load.branches.forEach((b, k) => {
+          const i = branches[l]![k]!.current;
+          if (b.to === 'N') total = add(total, i);
+          if (b.from === 'N') total = sub(total, i);
+        }),
+      );
+      neutralCurrent = total;
+    }
+  }
+  return { board, topology: topo, nodeVoltages, lineCurrents, neutralCurrent, branches, iterations: 1, lastChange: 0, lowVoltageThreshold: 0 };
+}
