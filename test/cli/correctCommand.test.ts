@@ -49,10 +49,39 @@ describe('trivar correct (built binary)', () => {
     expect(r.stderr).toContain('--pf');
   });
 
-  it('asks for an arrangement when neither the file nor the options give one', () => {
+  it('without an arrangement compares every arrangement side by side, recommends one and shows it in full (100 columns)', () => {
     const r = runTrivar(['correct', 'examples/corner-bakery.yaml']);
-    expect(r.code).toBe(2);
-    expect(r.stderr).toContain('--arrangement');
+    expect(r.stderr).toBe('');
+    expect(r.code).toBe(0);
+    expect(r.stdout).toContain('Arrangements compared');
+    for (const name of ['star bank', 'delta bank', 'compensator']) expect(r.stdout).toContain(`  ${name}`);
+    expect(r.stdout).toMatch(/Recommendation\n {2}\w+ \w+: /);
+    expect(r.stdout).toContain('Controller');
+    for (const line of r.stdout.split('\n')) expect(line.length).toBeLessThanOrEqual(100);
+  });
+
+  it('the North-American example compares the arrangements and recommends an equal-step delta bank of 480 V units', () => {
+    const r = runTrivar(['correct', 'examples/cedar-falls-print-shop.yaml', '--json']);
+    expect(r.code).toBe(0);
+    const c = JSON.parse(r.stdout);
+    expect(c.recommended).toBe('delta-bank');
+    const delta = c.outcomes.find((o: { arrangement: string }) => o.arrangement === 'delta-bank').report;
+    expect(delta.selection.steps.every((s: { unit: { ratedV: number }; part: string }) => s.unit.ratedV === 480 && s.part === 'balanced')).toBe(true);
+    expect(delta.selection.controller.dischargeTimeS).toBe(60);
+  });
+
+  it('a split-phase board compares a line-to-line capacitor with the line-to-neutral ones', () => {
+    const text = [
+      'supply: { system: split-phase, voltage: { lineToNeutral: 120 }, frequencyHz: 60, transformer: { kVA: 25, impedancePercent: 2.5, xOverR: 2 } }',
+      'loads:',
+      '  - { name: heat pump, connection: A-B, kW: 4.5, pf: 0.82 }',
+      '  - { name: kitchen, connection: A-N, kW: 1.5, pf: 0.95 }',
+    ].join('\n');
+    const r = runTrivar(['correct', '-', '--json'], text);
+    expect(r.code).toBe(0);
+    const c = JSON.parse(r.stdout);
+    expect(c.outcomes.map((o: { arrangement: string }) => o.arrangement)).toEqual(['star-bank', 'delta-bank']);
+    expect(c.recommended).toBe('delta-bank');
   });
 
   it('names the field of a bad correction section in the board file (exit 3)', () => {

@@ -1,6 +1,8 @@
 /** The open-neutral section of `trivar solve` as a user reads it, on the house example. */
 import { describe, expect, it } from 'vitest';
-import { runTrivar } from './runTrivar.js';
+import { readFileSync } from 'node:fs';
+import { readBoardText, solveBoard } from '@trivar/core';
+import { ROOT, runTrivar } from './runTrivar.js';
 
 describe('trivar solve: broken-neutral study', () => {
   const r = runTrivar(['solve', 'examples/maple-lane-house.yaml']);
@@ -21,5 +23,14 @@ describe('trivar solve: broken-neutral study', () => {
 
   it('fits 100 columns', () => {
     for (const line of section.split('\n')) expect(line.length, line).toBeLessThanOrEqual(100);
+  });
+
+  it('the README quotes the figures the study gives', () => {
+    const study = solveBoard(readBoardText(readFileSync(`${ROOT}examples/maple-lane-house.yaml`, 'utf8'))).openNeutral!;
+    const pair = (s: { loads: readonly { name: string; voltage: number }[] }) =>
+      `${Math.round(s.loads.find((l) => l.name === 'Kitchen')!.voltage)} V / ${Math.round(s.loads.find((l) => l.name === 'Bedrooms')!.voltage)} V`;
+    const readme = readFileSync(`${ROOT}README.md`, 'utf8').replace(/\s+/g, ' ');
+    expect(readme).toContain(`the report shows ${pair(study)}`);
+    expect(readme).toContain(`the other solution, ${pair(study.otherStates[0]!)}`);
   });
 });

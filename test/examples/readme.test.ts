@@ -15,6 +15,11 @@ describe('README', () => {
     const shown = block.replace(/^\s*```text\n/, '').replace(/```\s*$/, '');
     expect(shown.trimEnd()).toBe(runTrivar(['correct', 'examples/riverside-cold-store.yaml']).stdout.trimEnd());
   });
+  it('comparison output block matches `trivar correct examples/cedar-falls-print-shop.yaml`', () => {
+    const block = readme.split('<!-- compare-output:start -->')[1]!.split('<!-- compare-output:end -->')[0]!;
+    const shown = block.replace(/^\s*```text\n/, '').replace(/```\s*$/, '');
+    expect(shown.trimEnd()).toBe(runTrivar(['correct', 'examples/cedar-falls-print-shop.yaml']).stdout.trimEnd());
+  });
   it('installation output block matches `trivar solve examples/maple-court-riser.yaml`', () => {
     const block = readme.split('<!-- installation-output:start -->')[1]!.split('<!-- installation-output:end -->')[0]!;
     const shown = block.replace(/^\s*```text\n/, '').replace(/```\s*$/, '');

@@ -4,7 +4,7 @@ import { EXIT, exitCodeFor, messageFor } from './exitCodes.js';
 import { DEFAULT_MAX_INPUT_MB, type CliIo } from './io.js';
 import { runSolve } from './commands/solve.js';
 import { runSchema } from './commands/schema.js';
-import { runCorrect, type CorrectCommandOptions } from './commands/correct.js';
+import { outcomeMeetsTarget, runCorrect, type CorrectCommandOptions } from './commands/correct.js';
 import { runHarmonics } from './commands/harmonics.js';
 import { runRebalance, type RebalanceCommandOptions } from './commands/rebalance.js';
 import { DIAGRAM_VIEWS, runDiagram, type DiagramCommandOptions } from './commands/diagram.js';
@@ -35,13 +35,14 @@ The study can also live in the board file under "correction:" (see trivar schema
 
 Examples:
   trivar correct examples/riverside-cold-store.yaml
+  trivar correct examples/cedar-falls-print-shop.yaml        (no arrangement: all compared)
   trivar correct examples/riverside-cold-store.yaml --arrangement star-bank --pf 0.97
   trivar correct examples/corner-bakery.yaml --arrangement balancing-compensator
   trivar correct board.yaml --arrangement delta-bank --definition effective --light-load 0.2 --json
 
 Exit codes: as for solve, plus
-  5  the study ran but the target cannot be met with the allowed equipment (the report says why
-     and shows the best reachable result)`;
+  5  the study ran but the target cannot be met with the allowed equipment, or no unit suits
+     the voltage (the report says why and shows the best reachable result)`;
 
 const HARMONICS_EXAMPLES = `
 Spectra go on the loads (spectrum: switch-mode | [{ order, percent, angleDeg }]); background distortion,
@@ -167,7 +168,7 @@ export function createProgram(io: CliIo, outcome: RunOutcome = { exitCode: EXIT.
     .command('correct')
     .description('size a capacitor bank or balancing compensator for a power-factor target, choose units, and verify by re-solving')
     .argument('<board>', 'board file (YAML or JSON), or - for standard input')
-    .addOption(new Option('--arrangement <kind>', 'what to size').choices(['star-bank', 'delta-bank', 'balancing-compensator']))
+    .addOption(new Option('--arrangement <kind>', 'what to size (default: compare every arrangement that fits the board)').choices(['star-bank', 'delta-bank', 'balancing-compensator']))
     .option('--pf <value>', 'target power factor (0 < pf <= 1; default 0.95)', numberIn(0, 1, 'a power factor above 0 and at most 1'))
     .addOption(
       new Option('--definition <name>', 'which power factor the target applies to').choices(['per-line', 'effective', 'vector', 'arithmetic', 'positive-sequence']),
@@ -182,9 +183,7 @@ export function createProgram(io: CliIo, outcome: RunOutcome = { exitCode: EXIT.
     .addOption(maxInputOption())
     .addHelpText('after', CORRECT_EXAMPLES)
     .action(async (board: string, opts: CorrectCommandOptions) => {
-      const report = await runCorrect(board, opts, io);
-      const missed = report.status === 'infeasible' || report.status === 'misses-target-with-available-units' || report.status === 'no-suitable-units';
-      if (missed) outcome.exitCode = EXIT.targetNotMet;
+      if (!outcomeMeetsTarget(await runCorrect(board, opts, io))) outcome.exitCode = EXIT.targetNotMet;
     });
 
   program

@@ -116,6 +116,8 @@ export { selectBankUnits, defaultPractice } from './correction/selectBankUnits.j
 export type { VerifyCorrectionOptions } from './correction/verifyCorrection.js';
 export { verifyCorrection } from './correction/verifyCorrection.js';
 export { correctBoard } from './correction/correctBoard.js';
+export type { CorrectionComparison, ArrangementOutcome, ArrangementFigures } from './correction/compareCorrections.js';
+export { compareCorrections } from './correction/compareCorrections.js';
 export type * from './correction/correctionResult.js';
 export { CORRECTION_CAUTIONS } from './correction/correctionWording.js';
 

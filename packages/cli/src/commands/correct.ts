@@ -1,9 +1,9 @@
 /** `trivar correct`: size, choose and verify power-factor correction for a board. */
-import { correctBoard, InputError, normaliseBoard, parseBoard, readBoardText, type CorrectionReport } from '@trivar/core';
+import { compareCorrections, correctBoard, InputError, normaliseBoard, parseBoard, readBoardText, type CorrectionComparison, type CorrectionReport } from '@trivar/core';
 import type { CliIo } from '../io.js';
 import { writeResult } from '../writeResult.js';
-import { UsageError } from '../exitCodes.js';
 import { renderCorrectionReport } from '../format/correctionReport.js';
+import { renderComparisonReport } from '../format/comparisonReport.js';
 
 export interface CorrectCommandOptions {
   readonly json?: boolean;
@@ -38,14 +38,30 @@ function studySpec(fromFile: Record<string, unknown> | undefined, o: CorrectComm
   return spec;
 }
 
-export async function runCorrect(file: string, options: CorrectCommandOptions, io: CliIo): Promise<CorrectionReport> {
+/** What `trivar correct` produced: one arrangement's report, or every arrangement compared. */
+export type CorrectOutcome = { readonly kind: 'single'; readonly report: CorrectionReport } | { readonly kind: 'comparison'; readonly comparison: CorrectionComparison };
+
+/** True when the outcome meets the target (exit 0), false for exit 5. */
+export function outcomeMeetsTarget(outcome: CorrectOutcome): boolean {
+  if (outcome.kind === 'comparison') return outcome.comparison.meetsTarget;
+  const s = outcome.report.status;
+  return s !== 'infeasible' && s !== 'misses-target-with-available-units' && s !== 'no-suitable-units';
+}
+
+export async function runCorrect(file: string, options: CorrectCommandOptions, io: CliIo): Promise<CorrectOutcome> {
   const spec = parseBoard(readBoardText(await io.readSource(file, options.maxInputMb === undefined ? {} : { maxInputMB: options.maxInputMb })));
   const study = studySpec(spec.correction as Record<string, unknown> | undefined, options);
-  if (study.arrangement === undefined)
-    throw new UsageError('choose what to size: --arrangement star-bank | delta-bank | balancing-compensator, or correction.arrangement in the board file');
-  let report: CorrectionReport;
   try {
-    report = correctBoard(normaliseBoard(spec), study);
+    const board = normaliseBoard(spec);
+    // Without an arrangement (file or option) every arrangement that fits the board is compared.
+    if (study.arrangement === undefined) {
+      const comparison = compareCorrections(board, study);
+      writeResult(io, comparison, options.json, renderComparisonReport);
+      return { kind: 'comparison', comparison };
+    }
+    const report = correctBoard(board, study);
+    writeResult(io, report, options.json, renderCorrectionReport);
+    return { kind: 'single', report };
   } catch (error) {
     // The study comes from the board file's correction section (and the options laid over it).
     if (error instanceof InputError)
@@ -59,6 +75,4 @@ export async function runCorrect(file: string, options: CorrectCommandOptions, i
       );
     throw error;
   }
-  writeResult(io, report, options.json, renderCorrectionReport);
-  return report;
 }

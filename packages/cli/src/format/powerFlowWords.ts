@@ -27,5 +27,6 @@ export function varWords(kvar: number, digits = 2): string {
 /** A sentence for a line or circuit that sends active power back, or null. */
 export function exportSentence(who: string, r: Pick<PowerReading, 'kW' | 'kvar'>, verb: 'exports' | 'generates'): string | null {
   if (!isExport(r.kW)) return null;
-  return `${who} ${verb} ${fixed(-r.kW, 2)} kW and ${varWords(r.kvar)}.`;
+  const vars = varWords(r.kvar);
+  return `${who} ${verb} ${fixed(-r.kW, 2)} kW ${vars === 'no reactive power' ? 'at unity power factor' : `and ${vars}`}.`;
 }

@@ -88,6 +88,11 @@ export interface BankSizing extends SizedEquipment {
   readonly lines: readonly LineComparison[];
   /** Floating star point of the bank to the centroid of the line voltages, V; null when tied to the neutral. */
   readonly starPointShift: Phasor | null;
+  /**
+   * Per-line targets on a three-phase bank: the kvar per branch (at nominal voltage) an equal bank needs
+   * to meet every line (null: no equal bank does before a line passes its bound), and the most it may have.
+   */
+  readonly equalShare: { readonly minKvar: number | null; readonly limitKvar: number } | null;
   /** Board solves the sizing used. */
   readonly solves: number;
 }

@@ -160,3 +160,33 @@ export const reportSummary = {
 };
 
 export const ARRANGEMENT_NAMES = { 'star-bank': 'star bank', 'delta-bank': 'delta bank', 'balancing-compensator': 'balancing compensator' } as const;
+
+const STATUS_SHORT: Record<string, string> = {
+  'meets-target': 'meets the target across the capacitance tolerance',
+  'meets-target-at-nominal-capacitance': 'meets the target at nominal capacitance only',
+  'already-meets-target': 'has nothing to add',
+  'misses-target-with-available-units': 'misses the target with the available units',
+  infeasible: 'cannot reach the target with capacitors',
+  'no-suitable-units': 'has no unit that suits its voltage',
+};
+
+export const comparisonWording = {
+  rule: 'first an arrangement that meets the target across the capacitance tolerance, then at nominal capacitance; among those the least cost (nameplate kvar + 2 kvar-equivalent per unit, a reactor counted at twice its kvar); costs within 5 % are equal and the lower losses decide',
+  noneStudied: 'no arrangement could be studied with these settings',
+  why: (
+    name: string,
+    status: string,
+    f: { cost: number; lossesKW: number },
+    others: readonly { name: string; status: string; cost: number; lossesKW: number }[],
+    tieOnCost: boolean,
+  ) => {
+    const head =
+      status === 'already-meets-target'
+        ? `${name}: the board already meets the target, nothing to add`
+        : status === 'meets-target' || status === 'meets-target-at-nominal-capacitance'
+          ? `${name}: ${STATUS_SHORT[status]} at ${tieOnCost ? 'about the least cost and with the lowest losses' : 'the least cost'} (cost ${f.cost.toFixed(1)})`
+          : `${name}: no arrangement meets the target; this one comes closest (${STATUS_SHORT[status]})`;
+    const rest = others.map((o) => (o.status === status ? `${o.name} costs ${o.cost.toFixed(1)}` : `${o.name} ${STATUS_SHORT[o.status]}`));
+    return rest.length ? `${head}; ${rest.join('; ')}` : head;
+  },
+};

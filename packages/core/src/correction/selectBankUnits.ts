@@ -178,6 +178,22 @@ export function selectBankUnits(sized: SizedEquipment, options?: SelectBankUnits
     });
   const choiceOf = (usable: Usable, unitsPerCount: number): UnitChoice => ({ unit: usable.unit, index: usable.index, elementF: elementF(usable.unit), unitsPerCount });
 
+  // An equal bank's own window, where the sizing found it (per-line targets on a three-phase bank).
+  const equal = (sized as { equalShare?: { minKvar: number | null; limitKvar: number } | null }).equalShare ?? null;
+  const lightEqual = (opts.lightLoad as { equalShare?: { minKvar: number | null; limitKvar: number } | null } | undefined)?.equalShare ?? null;
+  const equalNeedsOf = (indices: readonly number[]): Need[] | undefined => {
+    if (!equal || equal.minKvar === null) return undefined;
+    return indices.map((i) => {
+      const v = branchInfo[i]!.slot.vNominal;
+      const toF = (kvar: number) => (kvar * 1000) / (omega * v * v);
+      const nominalF = toF(equal.minKvar!);
+      const minF = nominalF / (1 - minus);
+      const limitF = toF(equal.limitKvar);
+      const fixedMaxF = lightEqual ? Math.min(toF(lightEqual.limitKvar) / (1 + plus), minF) : branchInfo[i]!.need.fixedMaxF;
+      return { nominalF, minF, maxF: limitF / (1 + plus), limitF, fixedMaxF };
+    });
+  };
+  const usedNeed: Need[] = branchInfo.map((x) => x.need);
   const designF = sized.branches.map(() => 0);
   const fixedF = sized.branches.map(() => 0);
   const builds: { set: (typeof sets)[number]; build: SetBuild }[] = [];
@@ -210,17 +226,19 @@ export function selectBankUnits(sized: SizedEquipment, options?: SelectBankUnits
       balancedChoices,
       trimChoices,
       { unitCostKvar, minSwitchedSteps: CORRECTION_DEFAULTS.minSwitchedSteps, minStepKvar, outputs: outputsPerSet, maxUnitsPerBranch: maxUnits },
+      three && !withReactor ? equalNeedsOf(set.indices) : undefined,
     );
     set.indices.forEach((i, k) => {
       designF[i] = build.designF[k]!;
       fixedF[i] = build.fixedF[k]!;
+      usedNeed[i] = build.needs[k]!;
     });
     builds.push({ set, build });
     const names = set.indices.map((i) => branchInfo[i]!.b.branch);
     build.tiers.forEach((tier, k) => {
       const name = names[k]!;
       if (tier === 1 || tier === 2) warn('tolerance-window', warningText.windowMissed(name));
-      if (shortOfTarget(tier) && infos[k]!.need.minF > 0) warn('units-below-target', warningText.unitsBelowTarget(name));
+      if (shortOfTarget(tier) && build.needs[k]!.minF > 0) warn('units-below-target', warningText.unitsBelowTarget(name));
       if (tier === 5) warn('units-past-limit', warningText.unitsPastLimit(name));
     });
     if (build.violations.outputs) warn('outputs-short', warningText.outputsShort(names, outputsPerSet), 'controller.outputs', outputs, null);
@@ -316,7 +334,8 @@ export function selectBankUnits(sized: SizedEquipment, options?: SelectBankUnits
       nameplateKvar: on.reduce((s, st) => s + st.nameplateKvar / st.branches.length, 0),
     };
   };
-  const selections = branchInfo.map(({ b, slot, need, highestVoltageV, requiredRatedV }, i): BranchSelection => {
+  const selections = branchInfo.map(({ b, slot, highestVoltageV, requiredRatedV }, i): BranchSelection => {
+    const need = usedNeed[i]!;
     const share = perBranch(i);
     const reactor = b.element === 'reactor' && !negligible(b);
     const design = designF[i]!;

@@ -59,6 +59,8 @@ export interface SetBuild {
   readonly designF: readonly number[];
   readonly fixedF: readonly number[];
   readonly tiers: readonly number[];
+  /** The windows the build was judged against: the equal bank's own for an equal build, the per-branch ones otherwise. */
+  readonly needs: readonly Need[];
   readonly units: number;
   readonly nameplateKvar: number;
   readonly cost: number;
@@ -165,6 +167,7 @@ function evaluate(
     designF,
     fixedF,
     tiers,
+    needs,
     units,
     nameplateKvar,
     cost: nameplateKvar + rules.unitCostKvar * units,
@@ -227,18 +230,24 @@ function bestTrim(branch: number, need: Need, baseF: number, choices: readonly U
  * @param balancedChoices units for the balanced part (a lone branch: its units)
  * @param trimChoices per branch, single-phase units for a trim step (empty: no trims)
  */
-export function searchSet(needs: readonly Need[], balancedChoices: readonly UnitChoice[], trimChoices: readonly (readonly UnitChoice[])[], rules: SetRules): SetBuild {
+export function searchSet(
+  needs: readonly Need[],
+  balancedChoices: readonly UnitChoice[],
+  trimChoices: readonly (readonly UnitChoice[])[],
+  rules: SetRules,
+  equalNeeds: readonly Need[] = needs,
+): SetBuild {
   let best: SetBuild | null = null;
   let bestKey: number[] = [];
   const consider = (build: SetBuild) => {
-    const k = rankKey(build, needs);
+    const k = rankKey(build, build.needs);
     if (!best || better(k, bestKey)) {
       best = build;
       bestKey = k;
     }
   };
   const balancedCounts = (choice: UnitChoice) => {
-    const edges = needs.flatMap((need) => [need.minF, need.nominalF, need.maxF, need.limitF]);
+    const edges = [...needs, ...equalNeeds].flatMap((need) => [need.minF, need.nominalF, need.maxF, need.limitF]);
     const near = countsNear(edges, choice.elementF);
     // Multiples of the step counts wanted, so equal steps are within reach; and the
     // largest build within the unit cap is always a candidate (never dropped for being over it).
@@ -256,7 +265,7 @@ export function searchSet(needs: readonly Need[], balancedChoices: readonly Unit
   };
   // Equal steps first; trims only where no equal build fits every branch's window.
   consider(evaluate(needs, rules, null, []));
-  for (const choice of balancedChoices) for (const count of balancedCounts(choice)) consider(evaluate(needs, rules, { choice, count }, []));
+  for (const choice of balancedChoices) for (const count of balancedCounts(choice)) consider(evaluate(equalNeeds, rules, { choice, count }, []));
   const equalFits = best !== null && Math.max(...(best as SetBuild).tiers) === 0 && !Object.values((best as SetBuild).violations).some(Boolean);
   if (!equalFits && trimChoices.some((c) => c.length)) {
     withTrims(null);

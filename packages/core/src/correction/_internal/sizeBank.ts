@@ -13,6 +13,7 @@ import { infeasibleReason, sizingMethod } from '../correctionWording.js';
 import { createProbe, type ProbeState } from './boardProbe.js';
 import { sizeForLineTargets, type LoopSettings } from './sizeForLineTargets.js';
 import { sizeAlongDirection } from './sizeAlongDirection.js';
+import { equalShareWindow, type EqualShareWindow } from './equalShareWindow.js';
 import { branchSizings, lineComparisons } from './branchReadings.js';
 
 export interface ResolvedBankOptions {
@@ -35,6 +36,14 @@ export function sizeBank(board: Board, arrangement: BankSizing['arrangement'], s
   const start = probe.at(zeros);
   const checkBefore = checkTarget(start.result, target);
   const limitBands = lineBands(target, start, 'limit');
+
+  const perLineTarget = target.definition === 'per-line';
+  // An equal bank's own window (per-line targets; with a board-wide target the equal share is the sizing itself).
+  // Equal delta and equal star branches of the same kvar are Y–Δ equivalents, so the window carries over.
+  let equalShare: EqualShareWindow | null = null;
+  const equalWindow = () => {
+    if (perLineTarget && slots.length === 3 && start.result.totals.kW > 0) equalShare = equalShareWindow(probe, start, lineBands(target, start, 'target'), limitBands);
+  };
 
   const finish = (sized: ProbeState, sizedLimit: readonly number[] | null, method: string, forced?: { status: BankSizing['status']; reasons: string[] }): BankSizing => {
     const state = floating ? built.at(toBuilt(sized.kvar)) : sized;
@@ -65,6 +74,7 @@ export function sizeBank(board: Board, arrangement: BankSizing['arrangement'], s
       check,
       lines: lineComparisons(start.result, state.result),
       starPointShift: slots.some((s) => s.to === 'star') ? star : null,
+      equalShare,
       solves: probe.solves() + (floating ? built.solves() : 0),
     };
   };
@@ -75,6 +85,7 @@ export function sizeBank(board: Board, arrangement: BankSizing['arrangement'], s
   // The limit (most compensation before a line passes its upper bound) is wanted
   // even when nothing is needed: a light-load sizing caps the fixed part with it.
   if (perLine) {
+    equalWindow();
     const limit = sizeForLineTargets(probe, limitBands, loop);
     if (checkBefore.met) return finish(start, limit.kvar, method, { status: 'already-meets-target', reasons: [] });
     const outcome = sizeForLineTargets(probe, lineBands(target, start, 'target'), loop);

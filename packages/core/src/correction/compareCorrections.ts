@@ -1,0 +1,159 @@
+/**
+ * `trivar correct` without an arrangement: every arrangement that fits the
+ * board is sized, built and verified with the same study, set side by side,
+ * and one is recommended with the reason in words.
+ *
+ * Recommendation rule (common practice, no source): first what meets the
+ * target across the capacitance tolerance, then at nominal capacitance, then
+ * nothing to do; among those the least cost (the unit choice's cost, plus a
+ * reactor at twice the cost of a capacitor of the same kvar); costs within 5 %
+ * count as equal and the lower losses after correction decide. Where nothing
+ * meets the target, the arrangement that comes closest is named, and why.
+ */
+import type { Board } from '../board/boardModel.js';
+import { InputError } from '../errors.js';
+import type { Arrangement, CorrectionSpec } from './correctionSpec.js';
+import { parseCorrectionSpec } from './validateCorrectionSpec.js';
+import { arrangementsFor } from './correctionRules.js';
+import { correctBoard } from './correctBoard.js';
+import { kvarFromSusceptance } from './equipment.js';
+import type { CorrectionReport, CorrectionStatus } from './correctionResult.js';
+import { ARRANGEMENT_NAMES, comparisonWording } from './correctionWording.js';
+
+/** One arrangement's outcome in figures a reader compares. */
+export interface ArrangementFigures {
+  readonly deliveredKvar: number;
+  readonly nameplateKvar: number;
+  readonly units: number;
+  readonly switchedSteps: number;
+  /** Reactor kvar the arrangement needs (balancing compensator only). */
+  readonly reactorKvar: number;
+  /** Lowest line PF after correction, with its sense. */
+  readonly lowestLinePf: number;
+  /** The PF the target is defined on, after (null where not defined). */
+  readonly targetPfAfter: number | null;
+  readonly neutralCurrentA: number | null;
+  readonly negativeSequencePercent: number | null;
+  readonly lossesKW: number;
+  /** Cost figure used to rank (kvar-equivalents). */
+  readonly cost: number;
+}
+
+export interface ArrangementOutcome {
+  readonly arrangement: Arrangement;
+  /** Null when the study does not apply to this arrangement (see `notApplicable`). */
+  readonly report: CorrectionReport | null;
+  readonly figures: ArrangementFigures | null;
+  /** Why the arrangement could not be studied with these settings. */
+  readonly notApplicable: string | null;
+}
+
+export interface CorrectionComparison {
+  readonly outcomes: readonly ArrangementOutcome[];
+  /** Null only when no arrangement could be studied. */
+  readonly recommended: Arrangement | null;
+  /** True when the recommended arrangement meets the target (or there is nothing to do). */
+  readonly meetsTarget: boolean;
+  /** Why that one, in words. */
+  readonly why: string;
+  readonly rule: string;
+}
+
+/** Settings that belong to one arrangement only are dropped for the others. */
+function specFor(spec: CorrectionSpec, arrangement: Arrangement): CorrectionSpec {
+  const { starPoint, share, compensator, balance, target, ...rest } = spec;
+  const out: Record<string, unknown> = { ...rest, arrangement };
+  if (arrangement === 'star-bank' && starPoint !== undefined) out.starPoint = starPoint;
+  if (arrangement !== 'balancing-compensator' && share !== undefined) out.share = share;
+  if (arrangement === 'balancing-compensator') {
+    if (compensator !== undefined) out.compensator = compensator;
+    if (balance !== undefined) out.balance = balance;
+  }
+  if (target !== undefined) {
+    const { perPhase, ...t } = target;
+    out.target = arrangement === 'balancing-compensator' || perPhase === undefined ? t : { ...t, perPhase };
+  }
+  return out as CorrectionSpec;
+}
+
+/** A reactor costs about twice a capacitor of the same kvar (common practice, no source). */
+const REACTOR_COST_FACTOR = 2;
+
+function figuresOf(r: CorrectionReport): ArrangementFigures {
+  const v = r.verification;
+  const sel = r.selection;
+  const reactorKvar = v.equipment.flatMap((g) => g.branches).reduce((s, b) => s + (b.susceptanceS < 0 ? Math.abs(kvarFromSusceptance(b.susceptanceS, b.vNominal)) : 0), 0);
+  const lowest = v.after.phases.reduce((a, p) => (p.kVA > 0 && p.pf < a ? p.pf : a), 1);
+  const def = r.target.definition;
+  const pf = v.powerFactor;
+  const targetPfAfter =
+    def === 'per-line' ? lowest : def === 'effective' ? (pf.effective?.after ?? null) : def === 'positive-sequence' ? (pf.positiveSequence?.after ?? null) : def === 'vector' ? pf.vector.after : pf.arithmetic.after;
+  return {
+    deliveredKvar: sel?.deliveredKvar ?? 0,
+    nameplateKvar: sel?.nameplateKvar ?? 0,
+    units: sel?.units ?? 0,
+    switchedSteps: sel?.steps.filter((s) => s.output !== null).length ?? 0,
+    reactorKvar,
+    lowestLinePf: lowest,
+    targetPfAfter,
+    neutralCurrentA: v.neutralCurrentA?.after ?? null,
+    negativeSequencePercent: v.unbalance?.negativeSequenceCurrentPercent.after ?? null,
+    lossesKW: v.after.losses.totalKW,
+    cost: (sel?.cost.value ?? 0) + REACTOR_COST_FACTOR * reactorKvar,
+  };
+}
+
+const STATUS_RANK: Record<CorrectionStatus, number> = {
+  'meets-target': 0,
+  'meets-target-at-nominal-capacitance': 1,
+  'already-meets-target': 0,
+  'misses-target-with-available-units': 2,
+  infeasible: 3,
+  'no-suitable-units': 4,
+};
+
+/**
+ * Sizes, builds and verifies every arrangement that fits the board, and recommends one.
+ * @param board a normalised board
+ * @param spec the study without an arrangement (one given is ignored: all are compared)
+ * @returns each arrangement's report and figures, the recommendation and why
+ * @throws {InputError} for a study that is not valid for the board
+ * @example
+ * const c = compareCorrections(board, { target: { pf: 0.95 } });
+ * c.recommended //=> 'delta-bank'
+ * c.why         //=> 'delta bank: meets the target at the least cost …'
+ */
+export function compareCorrections(board: Board, spec: unknown): CorrectionComparison {
+  const parsed = parseCorrectionSpec(spec, board);
+  const outcomes = arrangementsFor(board).map((arrangement): ArrangementOutcome => {
+    try {
+      const report = correctBoard(board, specFor(parsed, arrangement));
+      return { arrangement, report, figures: figuresOf(report), notApplicable: null };
+    } catch (error) {
+      if (error instanceof InputError) return { arrangement, report: null, figures: null, notApplicable: error.issues.map((i) => i.message).join('; ') };
+      throw error;
+    }
+  });
+  const studied = outcomes.filter((o): o is ArrangementOutcome & { report: CorrectionReport; figures: ArrangementFigures } => o.report !== null);
+  if (!studied.length) return { outcomes, recommended: null, meetsTarget: false, why: comparisonWording.noneStudied, rule: comparisonWording.rule };
+  const rank = (o: (typeof studied)[number]) => STATUS_RANK[o.report.status];
+  const bestRank = Math.min(...studied.map(rank));
+  const pool = studied.filter((o) => rank(o) === bestRank);
+  const meetsTarget = bestRank <= 1;
+  const cheapest = Math.min(...pool.map((o) => o.figures.cost));
+  // Meeting the target: least cost, then losses. Missing it: the one that comes closest.
+  const closeness = (o: (typeof studied)[number]) => o.figures.targetPfAfter ?? -Infinity;
+  const near = meetsTarget ? pool.filter((o) => o.figures.cost <= cheapest * 1.05 + 1e-9) : pool;
+  const chosen = meetsTarget
+    ? near.reduce((a, b) => (b.figures.lossesKW < a.figures.lossesKW - 1e-12 ? b : a))
+    : near.reduce((a, b) => (closeness(b) > closeness(a) ? b : a));
+  const others = studied.filter((o) => o !== chosen);
+  const why = comparisonWording.why(
+    ARRANGEMENT_NAMES[chosen.arrangement],
+    chosen.report.status,
+    chosen.figures,
+    others.map((o) => ({ name: ARRANGEMENT_NAMES[o.arrangement], status: o.report.status, cost: o.figures.cost, lossesKW: o.figures.lossesKW })),
+    meetsTarget && near.length > 1,
+  );
+  return { outcomes, recommended: chosen.arrangement, meetsTarget, why, rule: comparisonWording.rule };
+}
