@@ -20,6 +20,20 @@ await build({
 });
 chmodSync('packages/cli/bin/trivar.js', 0o755);
 
+// Worker thread of `trivar profile` (reads half of a large interval-data file), beside the CLI bundle.
+await build({
+  entryPoints: ['packages/cli/src/profileWorker.ts'],
+  outfile: 'packages/cli/dist/profile-worker.js',
+  bundle: true,
+  platform: 'node',
+  target: 'node20',
+  format: 'esm',
+  minify: true,
+  legalComments: 'none',
+  banner: { js: requireShim },
+  logLevel: 'warning',
+});
+
 await build({
   entryPoints: ['packages/core/src/index.ts'],
   outfile: 'packages/core/dist/index.js',

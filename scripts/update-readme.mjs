@@ -10,6 +10,7 @@ const blocks = [
   ['installation-output', ['solve', 'examples/maple-court-riser.yaml']],
   ['harmonics-output', ['harmonics', 'examples/mill-street-offices.yaml']],
   ['check-output', ['check', 'examples/riverside-cold-store.yaml', 'examples/hand-figures/riverside-cold-store.yaml']],
+  ['rebalance-output', ['rebalance', 'examples/larkspur-court-flats.yaml']],
 ];
 let readme = readFileSync('README.md', 'utf8');
 for (const [marker, args] of blocks) {

@@ -6,7 +6,7 @@ import { normaliseBoard, parseBoardText, rebalanceBoard, scaleBoardLoads, solveB
 import { ROOT, runTrivar } from './runTrivar.js';
 import { expectClose } from '../support/tolerance.js';
 
-const flats = 'examples/maple-court-flats.yaml';
+const flats = 'examples/larkspur-court-flats.yaml';
 
 describe('trivar rebalance (built binary)', () => {
   it('prints a work order, before/after per condition, the bound and the cautions', () => {

@@ -19,6 +19,8 @@ export interface CliIo {
   readonly readSource: (path: string, options?: ReadOptions) => Promise<string>;
   /** True when stdout is a terminal (colour allowed). */
   readonly isTty: boolean;
+  /** True when stderr is a terminal: long runs may draw a progress bar there. */
+  readonly progressTty?: boolean;
 }
 
 const MIB = 1024 * 1024;
@@ -108,4 +110,5 @@ export const processIo: CliIo = {
   stderr: (text) => process.stderr.write(text),
   readSource: readBoardSource,
   isTty: Boolean(process.stdout.isTTY),
+  progressTty: Boolean(process.stderr.isTTY),
 };

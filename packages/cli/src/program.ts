@@ -5,6 +5,7 @@ import { DEFAULT_MAX_INPUT_MB, type CliIo } from './io.js';
 import { runSolve } from './commands/solve.js';
 import { runSchema } from './commands/schema.js';
 import { outcomeMeetsTarget, runCorrect, type CorrectCommandOptions } from './commands/correct.js';
+import { runProfile, type ProfileCommandOptions } from './commands/profile.js';
 import { runHarmonics } from './commands/harmonics.js';
 import { runRebalance, type RebalanceCommandOptions } from './commands/rebalance.js';
 import { DIAGRAM_VIEWS, runDiagram, type DiagramCommandOptions } from './commands/diagram.js';
@@ -44,6 +45,23 @@ Exit codes: as for solve, plus
   5  the study ran but the target cannot be met with the allowed equipment, or no unit suits
      the voltage (the report says why and shows the best reachable result)`;
 
+const PROFILE_EXAMPLES = `
+Interval data: a CSV file whose first column is the time (2025-03-30 02:15, or ISO 8601 with Z or an
+offset) and whose other headers are "<target> [<quantity>]":
+  target    a load name, a group from the board file's profile.groups, or phase A / phase B / phase C
+  quantity  x (fraction of rating) | kW | kW + kvar | kW + pf | A + pf   (pf < 0 = leading)
+Intervals from 1 s to 1 h. Gaps and repeated times are reported; gaps stay out of every figure
+unless --fill-gaps says how to fill them. Tariff, limits and the bank live under profile: in the
+board file (see trivar schema).
+
+Examples:
+  node scripts/generate-profile-example.mjs /tmp/quay-street.csv
+  trivar profile examples/quay-street-flats.yaml --data /tmp/quay-street.csv --time-zone Europe/Dublin
+  trivar profile examples/quay-street-flats.yaml --data /tmp/quay-street.csv --bank --charts charts/
+  trivar profile board.yaml --data meter.csv --fill-gaps hold --summary-csv summary.csv --json
+
+Exit codes: as for solve (3 also for interval data that cannot be read: every bad cell is named
+by row and column)`;
 const HARMONICS_EXAMPLES = `
 Spectra go on the loads (spectrum: switch-mode | [{ order, percent, angleDeg }]); background distortion,
 an installed bank and the IEEE 519 check go under "harmonics:" in the board file (see trivar schema).
@@ -59,9 +77,9 @@ The study can also live in the board file under "rebalance:" (pins, load conditi
 see trivar schema); options override it.
 
 Examples:
-  trivar rebalance examples/maple-court-flats.yaml
-  trivar rebalance examples/maple-court-flats.yaml --move-limit 3
-  trivar rebalance examples/maple-court-flats.yaml --near-best 2 --write flats-rebalanced.yaml
+  trivar rebalance examples/larkspur-court-flats.yaml
+  trivar rebalance examples/larkspur-court-flats.yaml --move-limit 3
+  trivar rebalance examples/larkspur-court-flats.yaml --near-best 2 --write larkspur-moved.yaml
   trivar rebalance board.yaml --aim neutral=1,largest-line=0.5 --json
 
 Exit codes: as for solve`;
@@ -184,6 +202,26 @@ export function createProgram(io: CliIo, outcome: RunOutcome = { exitCode: EXIT.
     .addHelpText('after', CORRECT_EXAMPLES)
     .action(async (board: string, opts: CorrectCommandOptions) => {
       if (!outcomeMeetsTarget(await runCorrect(board, opts, io))) outcome.exitCode = EXIT.targetNotMet;
+    });
+
+  program
+    .command('profile')
+    .description('run interval data through the board: peaks and percentiles, hours over limits, energy and billing power factor by month, an automatic bank simulated over the year')
+    .argument('<board>', 'board file (YAML or JSON), or - for standard input')
+    .option('--data <file>', 'interval data (CSV)')
+    .option('--time-zone <name>', 'IANA time zone of times written without an offset, and of calendar months (default UTC)')
+    .addOption(new Option('--fill-gaps <how>', 'fill missing intervals (default: leave them out)').choices(['none', 'hold', 'linear']))
+    .option('--unlisted-at-rating', 'keep loads that no column drives at their rating (default: off)')
+    .option('--bank', 'simulate an automatic capacitor bank over the profile (profile.bank in the board file sets it up)')
+    .option('--pf <value>', 'target power factor of the bank (0 < pf <= 1; default 0.95)', numberIn(0, 1, 'a power factor above 0 and at most 1'))
+    .option('--summary-csv <file>', 'write the summary as CSV')
+    .option('--intervals-csv <file>', 'write per-interval results as CSV')
+    .option('--charts <dir>', 'write SVG charts (currents, power factor, load duration) into this folder')
+    .option('--threads <n>', 'worker threads for reading large files (1 or 2; default 2 where there are two cores)', numberIn(0, 2, '1 or 2'))
+    .option('--json', 'print the full result as JSON instead of the report')
+    .addHelpText('after', PROFILE_EXAMPLES)
+    .action(async (board: string, opts: ProfileCommandOptions) => {
+      await runProfile(board, opts, io);
     });
 
   program

@@ -121,6 +121,32 @@ export { compareCorrections } from './correction/compareCorrections.js';
 export type * from './correction/correctionResult.js';
 export { CORRECTION_CAUTIONS } from './correction/correctionWording.js';
 
+// Load over time (trivar profile)
+export type { ProfileSpec, ScenarioSpec, TariffSpec, ProfileBankSpec, BankStepSpec, ProfileLimitsSpec } from './profile/profileSpec.js';
+export { profileSpecSchema } from './profile/profileSpec.js';
+export { PROFILE_DEFAULTS } from './profile/profileDefaults.js';
+export type { BatchNetwork, BatchEdge, DriverSpec, DriverColumns } from './profile/batchNetwork.js';
+export { compileBatchNetwork, edgePowersAt } from './profile/batchNetwork.js';
+export type { BatchKernel, IntervalState, KernelOptions } from './profile/batchKernel.js';
+export type { IntervalFigures, BatchSolveOptions } from './profile/solveBatch.js';
+export { allocateFigures, createBatchKernel, solveBatch } from './profile/solveBatch.js';
+export type { ColumnPlan, ColumnTarget, ColumnPlanOptions, Quantity } from './profile/columnPlan.js';
+export { planColumns, planDrivers, driverColumns } from './profile/columnPlan.js';
+export type { RawIntervals, RowReader, RowReaderOptions } from './profile/readIntervalRows.js';
+export { createRowReader } from './profile/readIntervalRows.js';
+export type { GapFill, GapReading, SequenceReport, IntervalTable } from './profile/checkIntervalSequence.js';
+export { GAP_FILLS, checkIntervalSequence, concatRawIntervals } from './profile/checkIntervalSequence.js';
+export { isKnownTimeZone } from './profile/zoneClock.js';
+export type { SwitchedStep, SwitchingSettings, StepChannel } from './profile/bankController.js';
+export { createBankController } from './profile/bankController.js';
+export { simulateBank } from './profile/simulateBank.js';
+export type { MonthReading } from './profile/monthlyBilling.js';
+export type { ProfileSummary, ConductorSummary, VoltageSummary, WorstInterval, ResolvedLimits } from './profile/summariseFigures.js';
+export type { ProfileStudy, ProfileStudyInput, ProfileStudyOptions, ProfileResult, ProfileBankResult, BankStepRun } from './profile/studyProfile.js';
+export { studyProfile } from './profile/studyProfile.js';
+export type { ChartSeries, TimeChartInput, DurationChartInput } from './render/profileCharts.js';
+export { renderTimeChart, renderDurationChart } from './render/profileCharts.js';
+
 // Harmonics
 export type * from './harmonics/harmonicsResult.js';
 export type { SpectrumSpec, SpectrumEntrySpec, LinearForm, HarmonicsSectionSpec, InstalledBankSpec } from './harmonics/harmonicsSpec.js';

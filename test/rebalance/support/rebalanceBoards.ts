@@ -91,8 +91,8 @@ export interface Figures {
   readonly negative: number;
 }
 
-/** Line, neutral and negative-sequence currents of a board with the given connections and per-load factors. */
-export function boardFigures(spec: BoardSpec, connections: readonly ConnectionSpec[], factors?: readonly number[]): Figures {
+/** Complex line currents (phase order) of a board with the given connections and per-load factors, A. */
+export function lineCurrents(spec: BoardSpec, connections: readonly ConnectionSpec[], factors?: readonly number[]): ComplexValue[] {
   const split = spec.supply.system === 'split-phase';
   const vln = split ? (spec.supply.voltage.lineToNeutral ?? 120) : (spec.supply.voltage.lineToLine ?? 400) / Math.sqrt(3);
   const v: Record<string, ComplexValue> = split
@@ -114,7 +114,13 @@ export function boardFigures(spec: BoardSpec, connections: readonly ConnectionSp
       branch(a, b, s);
     }
   });
-  const I = lines.map((x) => current[x]!);
+  return lines.map((x) => current[x]!);
+}
+
+/** Line, neutral and negative-sequence currents of a board with the given connections and per-load factors. */
+export function boardFigures(spec: BoardSpec, connections: readonly ConnectionSpec[], factors?: readonly number[]): Figures {
+  const split = spec.supply.system === 'split-phase';
+  const I = lineCurrents(spec, connections, factors);
   const a = cPolarDeg(1, 120);
   const a2 = cPolarDeg(1, -120);
   const mul = (x: ComplexValue, y: ComplexValue) => c(x.re * y.re - x.im * y.im, x.re * y.im + x.im * y.re);

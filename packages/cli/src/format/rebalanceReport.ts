@@ -79,7 +79,8 @@ export function renderRebalanceReport(r: RebalanceReport): string {
     r.board.name,
     `Rebalancing: ${r.search.movable} of ${r.search.circuits} circuits can move${r.search.pinned ? `, ${r.search.pinned} pinned` : ''}`,
     `Score: ${scoreWords(r)}`,
-    `  now ${score(r.score.before)}  →  after ${score(r.score.after)}   lower bound ${r.score.lowerBound === null ? '-' : score(r.score.lowerBound)}`,
+    `  fast model:       now ${score(r.score.before)}  →  after ${score(r.score.after)}   lower bound ${r.score.lowerBound === null ? '-' : score(r.score.lowerBound)}`,
+    `  network re-solve: now ${score(r.solvedScore.before)}  →  after ${score(r.solvedScore.after)}`,
     `  ${verdict(r)}`,
   ];
   parts.push(section(`Work order (${r.moves.length} move${r.moves.length === 1 ? '' : 's'})`) + workOrder(r));

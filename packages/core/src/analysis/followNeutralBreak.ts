@@ -60,11 +60,21 @@ export function withNeutralFault(board: Board, ohms: number | null): Board {
   return { ...board, neutralOpen: false, neutralImpedance: add(board.neutralImpedance, complex(ohms, 0)) };
 }
 
-/** Impedance of the board's load at nominal voltage, ohm: the scale the fault resistance is swept over. */
+/**
+ * Impedance of the load the neutral serves at nominal voltage, ohm: the scale the fault resistance
+ * is swept over. Only branches to the neutral bar count — a large line-to-line load beside a small
+ * line-to-neutral one would otherwise end the sweep while the bar is still far from where the open
+ * neutral puts it, and the last step to open would look like a jump to another state.
+ */
 function loadImpedanceScale(board: Board): number {
   let va = 0;
-  for (const load of board.loads) for (const b of load.branches) va += abs(b.sNominal);
-  return (board.nominalLineToNeutralV ** 2) / Math.max(va, 1);
+  let all = 0;
+  for (const load of board.loads)
+    for (const b of load.branches) {
+      all += abs(b.sNominal);
+      if (b.from === 'N' || b.to === 'N') va += abs(b.sNominal);
+    }
+  return (board.nominalLineToNeutralV ** 2) / Math.max(va > 0 ? va : all, 1);
 }
 
 function largestMove(a: NetworkSolution, b: NetworkSolution, vBase: number): number {

@@ -7,6 +7,7 @@
  */
 import * as z from 'zod';
 import { correctionSpecSchema } from '../correction/correctionSpec.js';
+import { profileSpecSchema } from '../profile/profileSpec.js';
 import { harmonicsSectionSchema, linearFormSchema, spectrumSchema } from '../harmonics/harmonicsSpec.js';
 import { rebalanceSpecSchema } from '../rebalance/rebalanceSpec.js';
 
@@ -201,6 +202,7 @@ export const boardSchema = z
       .partial()
       .optional()
       .describe('a power-factor correction study for `trivar correct` (command-line options override it)'),
+    profile: profileSpecSchema.optional(),
     harmonics: harmonicsSectionSchema.optional(),
     rebalance: rebalanceSpecSchema.optional(),
   })

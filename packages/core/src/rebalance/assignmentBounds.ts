@@ -132,6 +132,7 @@ export function magnitudeBoundsWithMoveLimit(p: AssignmentProblem, moveLimit: nu
   const n = p.circuitCount;
   const q = p.quantityCount;
   const out = new Float64Array(q);
+  const contributions = p.contributions;
   let forced = 0;
   for (let i = 0; i < n; i++) if (p.home[i]! < 0) forced++;
   const free = Math.max(0, Math.min(n, moveLimit) - forced);
@@ -145,20 +146,20 @@ export function magnitudeBoundsWithMoveLimit(p: AssignmentProblem, moveLimit: nu
       let m = 0;
       for (let i = 0; i < n; i++) {
         let least = Infinity;
-        for (let k = 0; k < p.optionCounts[i]!; k++) {
-          const at = contributionOffset(p, i, k) + 2 * j;
-          const v = c * p.contributions[at]! + s * p.contributions[at + 1]!;
-          if (v < least) least = v;
-        }
+        let stay = 0;
         const h = p.home[i]!;
-        if (h < 0) {
-          value += least;
-          continue;
+        const options = p.optionCounts[i]!;
+        for (let k = 0; k < options; k++) {
+          const at = contributionOffset(p, i, k) + 2 * j;
+          const v = c * contributions[at]! + s * contributions[at + 1]!;
+          if (v < least) least = v;
+          if (k === h) stay = v;
         }
-        const at = contributionOffset(p, i, h) + 2 * j;
-        const stay = c * p.contributions[at]! + s * p.contributions[at + 1]!;
-        value += stay;
-        savings[m++] = stay - least;
+        if (h < 0) value += least;
+        else {
+          value += stay;
+          savings[m++] = stay - least;
+        }
       }
       if (free >= m) for (let t = 0; t < m; t++) value -= savings[t]!;
       else if (free > 0) {

@@ -34,6 +34,11 @@ export interface BuiltProblem {
   readonly layouts: readonly ConditionLayout[];
   /** Line currents (phase order) of the loads that cannot move, per condition, A — for messages. */
   readonly fixedLineA: readonly (readonly number[])[];
+  /**
+   * The one quantity the score reads, when it reads only one (a built-in aim of just the neutral,
+   * just the current unbalance or just the voltage unbalance, in one condition); else null.
+   */
+  readonly singleQuantity: number | null;
 }
 
 /** Balanced nominal phase voltages of the scoring model, in `board.phases` order. */
@@ -228,6 +233,13 @@ export function buildAssignmentProblem(board: Board, study: ResolvedRebalance, o
     limits,
     score,
   };
-  return { problem, slots, layouts, fixedLineA };
+  let singleQuantity: number | null = null;
+  const aimed = (Object.keys(study.aim) as (keyof typeof study.aim)[]).filter((k) => study.aim[k] > 0);
+  if (!objective && layouts.length === 1 && aimed.length === 1) {
+    const l = layouts[0]!;
+    const index = { largestLine: -1, neutral: l.neutral, currentUnbalance: l.negative, voltageUnbalance: l.voltageNegative }[aimed[0]!];
+    if (index >= 0) singleQuantity = index;
+  }
+  return { problem, slots, layouts, fixedLineA, singleQuantity };
 }
 

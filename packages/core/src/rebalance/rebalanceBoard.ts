@@ -27,6 +27,7 @@ import { conditionFigures, builtInObjective, type ConditionFigures, type Conditi
 import { resolveRebalanceSpec, type ResolvedRebalance } from './rebalanceRules.js';
 import { searchExact } from './searchExact.js';
 import { greedyChoice, searchLocal, trimMoves } from './searchLocal.js';
+import { searchMeetInMiddle } from './searchMeetInMiddle.js';
 import { moveCircuits, scaleToCondition } from './applyMoves.js';
 import type { CircuitMove, ConditionComparison, MoveTableRow, RebalanceReport } from './rebalanceResult.js';
 import { REBALANCE_CAUTIONS, REBALANCE_NOTES } from './rebalanceWording.js';
@@ -48,11 +49,11 @@ export interface RebalanceOptions {
    * @defaultValue 'auto'
    */
   readonly method?: 'auto' | 'exact' | 'local-search';
-  /** @defaultValue 22 (movable circuits; proven within about a second on typical boards, see README) */
+  /** @defaultValue 18 (movable circuits: proven within half a second of CPU on random boards, see README) */
   readonly exactUpTo?: number;
-  /** Most branch-and-bound nodes before it stops and reports the best found. @defaultValue 4 000 000 */
+  /** Most branch-and-bound nodes before it stops and reports the best found. @defaultValue 2 000 000 (a few seconds) */
   readonly nodeBudget?: number;
-  /** Random kicks of the local search after its first local optimum. @defaultValue 300 */
+  /** Random kicks of the local search after its first local optimum. @defaultValue 100 */
   readonly kicks?: number;
   /** Seed of the local search's generator (answers are repeatable). @defaultValue 1 */
   readonly seed?: number;
@@ -79,14 +80,22 @@ function resolveOptions(options: RebalanceOptions): ResolvedOptions {
   parseOptions(optionsSchema, options, 'rebalanceBoard options');
   return {
     method: options.method ?? 'auto',
-    exactUpTo: options.exactUpTo ?? 22,
-    nodeBudget: options.nodeBudget ?? 4_000_000,
-    kicks: options.kicks ?? 300,
+    exactUpTo: options.exactUpTo ?? 18,
+    nodeBudget: options.nodeBudget ?? 2_000_000,
+    kicks: options.kicks ?? 100,
     seed: options.seed ?? 1,
     moveTable: options.moveTable ?? true,
     objective: options.objective,
   };
 }
+
+/**
+ * Meet-in-the-middle rounds for one-quantity scores, each freeing 16 circuits (2 × 6561 placings):
+ * on random boards of 24–36 circuits six rounds took the neutral current from about 0.3 A after the
+ * local search to a few mA, in a few milliseconds each.
+ */
+const MEET_ROUNDS = 6;
+const MEET_SIZE = 16;
 
 /** Kicks for the incumbent handed to branch-and-bound (which then proves or improves it). */
 const EXACT_INCUMBENT_KICKS = 30;
@@ -100,7 +109,7 @@ interface Answer {
 }
 
 /** Best answer with at most `limit` moves: local search, then branch-and-bound where it pays. */
-function answerWithin(p: AssignmentProblem, limit: number, o: ResolvedOptions, tie: number, hints: readonly ScoredChoice[]): Answer {
+function answerWithin(p: AssignmentProblem, single: number | null, limit: number, o: ResolvedOptions, tie: number, hints: readonly ScoredChoice[]): Answer {
   const n = p.circuitCount;
   const starts = [homeChoice(p)];
   if (limit >= n) starts.push(greedyChoice(p));
@@ -109,6 +118,8 @@ function answerWithin(p: AssignmentProblem, limit: number, o: ResolvedOptions, t
   // With branch-and-bound to follow, the local search only needs a fair incumbent.
   const kicks = exactRan ? Math.min(o.kicks, EXACT_INCUMBENT_KICKS) : o.kicks;
   let best = searchLocal(p, starts, { moveLimit: limit, kicks, seed: o.seed, tie });
+  if (single !== null && !exactRan)
+    best = searchMeetInMiddle(p, best, { quantity: single, moveLimit: limit, rounds: MEET_ROUNDS, size: MEET_SIZE, seed: o.seed, tie });
   let proven = false;
   let nodes = 0;
   if (exactRan) {
@@ -194,7 +205,7 @@ export function rebalanceBoard(board: Board, study: unknown, options: RebalanceO
   const tie = tieTolerance(home.score);
   checkCapacity(built, resolved, limit, tie);
 
-  const main = answerWithin(p, limit, o, tie, []);
+  const main = answerWithin(p, built.singleQuantity, limit, o, tie, []);
   let chosen = main;
   let table: MoveTableRow[] | null = null;
   const wantTable = o.moveTable || resolved.nearBestPercent !== null;
@@ -202,7 +213,7 @@ export function rebalanceBoard(board: Board, study: unknown, options: RebalanceO
     table = [];
     let previous: Answer | null = null;
     for (let m = forced; m <= limit; m++) {
-      let row: Answer = m === limit ? main : answerWithin(p, m, o, tie, previous ? [main.best, previous.best] : [main.best]);
+      let row: Answer = m === limit ? main : answerWithin(p, built.singleQuantity, m, o, tie, previous ? [main.best, previous.best] : [main.best]);
       // An answer with fewer moves is allowed with more: rows never get worse.
       if (previous && previous.best.score <= row.best.score - tie && previous.best.excess <= tie) row = { ...row, best: previous.best };
       table.push({ moves: m, score: row.best.score, lowerBound: row.lowerBound, proven: row.proven, movesUsed: row.best.moves, withinCapacity: row.best.excess <= tie });
@@ -213,7 +224,7 @@ export function rebalanceBoard(board: Board, study: unknown, options: RebalanceO
       const best = Math.min(main.best.score, ...table.map((r) => r.score));
       const target = best * (1 + resolved.nearBestPercent / 100) + tie;
       const row = table.find((r) => r.score <= target);
-      if (row && row.moves < limit) chosen = answerWithin(p, row.moves, o, tie, [main.best]);
+      if (row && row.moves < limit) chosen = answerWithin(p, built.singleQuantity, row.moves, o, tie, [main.best]);
     }
   }
 
@@ -251,6 +262,12 @@ export function rebalanceBoard(board: Board, study: unknown, options: RebalanceO
   if (chosen.exactRan && !chosen.proven && chosen.nodes > o.nodeBudget) notes.push(REBALANCE_NOTES.budgetReached(o.nodeBudget));
   if (chosen.lowerBound === null && chosen.best.excess <= tie && n > 0) notes.push(REBALANCE_NOTES.noBound);
   if (chosen.best.excess > tie) notes.push(REBALANCE_NOTES.capacityNotMet);
+  conditions.forEach(({ solved: { before: f } }) =>
+    f.lineA.forEach((amps, k) => {
+      const cap = resolved.lineCapacityA[k]!;
+      if (amps > cap + tie) notes.push(REBALANCE_NOTES.overCapacityNow(board.phases[k]!, amps, cap, f.name));
+    }),
+  );
   if (moves.length > 0 && solvedScore.after > solvedScore.before + tieTolerance(solvedScore.before))
     notes.push(REBALANCE_NOTES.solvedNotBetter(solvedScore.before, solvedScore.after));
   const differs = Math.max(

@@ -18,4 +18,6 @@ export const REBALANCE_NOTES = {
     `The exact search stopped at its budget of ${nodes} nodes; the answer is the best found and its gap comes from the lower bound.`,
   noBound: 'The custom score broke the rule that it never falls when a figure grows, so no lower bound is reported.',
   capacityNotMet: 'No assignment found keeps every line within its capacity; the answer exceeds it least.',
+  overCapacityNow: (line: string, amps: number, capacity: number, condition: string) =>
+    `The present wiring puts ${amps.toFixed(1)} A on line ${line} in "${condition}", above its ${capacity.toFixed(0)} A capacity.`,
 } as const;

@@ -1,0 +1,90 @@
+/** `trivar profile`: interval data (or the board file's scenarios) through the batch solver. */
+import { mkdirSync } from 'node:fs';
+import { availableParallelism } from 'node:os';
+import { join } from 'node:path';
+import {
+  checkIntervalSequence,
+  driverColumns,
+  isKnownTimeZone,
+  normaliseBoard,
+  parseBoard,
+  planColumns,
+  planDrivers,
+  readBoardText,
+  studyProfile,
+  type GapFill,
+  type ProfileStudy,
+} from '@trivar/core';
+import type { CliIo } from '../io.js';
+import { UsageError } from '../exitCodes.js';
+import { assertNotInput, writeOutputFile } from '../outputFiles.js';
+import { writeResult } from '../writeResult.js';
+import { readCsvHeader, readIntervalRows } from '../read/intervalCsv.js';
+import { renderProfileReport } from '../format/profileReport.js';
+import { intervalCsv, summaryCsv } from '../format/profileCsv.js';
+import { CHART_FILES, writeProfileCharts } from '../format/profileChartFiles.js';
+import { startProgress } from '../progress.js';
+
+export interface ProfileCommandOptions {
+  readonly data?: string;
+  readonly timeZone?: string;
+  readonly fillGaps?: GapFill;
+  readonly unlistedAtRating?: boolean;
+  readonly bank?: boolean;
+  readonly pf?: number;
+  readonly json?: boolean;
+  readonly summaryCsv?: string;
+  readonly intervalsCsv?: string;
+  readonly charts?: string;
+  readonly threads?: number;
+}
+
+export async function runProfile(file: string, options: ProfileCommandOptions, io: CliIo): Promise<ProfileStudy> {
+  const spec = parseBoard(readBoardText(await io.readSource(file)));
+  const board = normaliseBoard(spec);
+  const zone = options.timeZone ?? 'UTC';
+  if (!isKnownTimeZone(zone)) throw new UsageError(`--time-zone: "${zone}" is not a time zone this system knows (expected an IANA name such as Europe/Lisbon or America/Chicago)`);
+  if (!options.data) throw new UsageError('give the interval data with --data <file.csv> (see trivar profile --help for the columns)');
+  const chartFiles = options.charts ? CHART_FILES.map((name) => join(options.charts!, name)) : [];
+  assertNotInput([options.summaryCsv, options.intervalsCsv, ...chartFiles].filter((x): x is string => x !== undefined), [file, options.data]);
+  const plan = planColumns(board, readCsvHeader(options.data), { ...(spec.profile?.groups ? { groups: spec.profile.groups } : {}), undrivenAtRating: options.unlistedAtRating ?? false });
+  const progress = startProgress(io);
+  progress.stage('reading', 1);
+  const threads = options.threads ?? Math.min(2, availableParallelism());
+  const raw = await readIntervalRows(options.data, plan, { timeZone: zone }, threads);
+  const table = checkIntervalSequence(raw, options.fillGaps ?? 'none');
+  const drivers = planDrivers(plan);
+  const columns = driverColumns(plan, table.values, table.count);
+  let study: ProfileStudy;
+  try {
+    study = studyProfile(
+      {
+        board: plan.board,
+        drivers,
+        columns,
+        utcMs: table.utcMs,
+        intervalMs: table.intervalMs,
+        sequence: table.report,
+        undriven: { loads: plan.undriven, atRating: plan.undrivenAtRating },
+        ...(spec.profile ? { profile: spec.profile } : {}),
+      },
+      {
+        timeZone: zone,
+        bank: options.bank ?? false,
+        ...(options.pf !== undefined ? { targetPf: options.pf } : {}),
+        onProgress: (stage, done, total) => progress.stage(stage === 'solve' ? 'solving' : 'bank', total, done),
+      },
+    );
+  } finally {
+    progress.stop();
+  }
+  const currency = spec.profile?.tariff?.currency ?? 'units';
+  if (options.summaryCsv) writeOutputFile(options.summaryCsv, summaryCsv(study.result));
+  if (options.intervalsCsv) writeOutputFile(options.intervalsCsv, intervalCsv(study));
+  if (options.charts) {
+    mkdirSync(options.charts, { recursive: true });
+    writeProfileCharts(study, (name, text) => writeOutputFile(join(options.charts!, name), text));
+  }
+  writeResult(io, study.result, options.json, (r) => renderProfileReport(r, currency));
+  return study;
+}

@@ -1,0 +1,81 @@
+/** CSV files of `trivar profile`: the summary (one figure a row) and the per-interval results. */
+import type { ProfileResult, ProfileStudy, ProfileSummary } from '@trivar/core';
+
+const cell = (x: string | number | null) => {
+  if (x === null) return '';
+  if (typeof x === 'number') return Number.isInteger(x) ? String(x) : x.toPrecision(8).replace(/\.?0+$/, '');
+  return /[",\n]/.test(x) ? `"${x.replace(/"/g, '""')}"` : x;
+};
+
+/** Rows: figure, where, before, after (empty without a bank), unit. */
+export function summaryCsv(r: ProfileResult): string {
+  const rows: (string | number | null)[][] = [['figure', 'where', 'before', 'after', 'unit']];
+  const a = r.bank?.after ?? null;
+  const add = (figure: string, where: string, pick: (s: ProfileSummary) => string | number | null, unit: string) =>
+    rows.push([figure, where, pick(r.before), a ? pick(a) : null, unit]);
+  r.before.conductors.forEach((c, k) => {
+    const where = c.conductor === 'N' ? 'neutral' : `line ${c.conductor}`;
+    add('peak current', where, (s) => s.conductors[k]!.maxA, 'A');
+    add('peak current at', where, (s) => s.conductors[k]!.maxAt, 'local time');
+    add('P99 current', where, (s) => s.conductors[k]!.p99A, 'A');
+    add('P95 current', where, (s) => s.conductors[k]!.p95A, 'A');
+    add('hours over limit', where, (s) => s.conductors[k]!.hoursAboveLimit, 'h');
+  });
+  r.before.voltages.forEach((v, k) => {
+    add('lowest voltage', `phase ${v.phase}`, (s) => s.voltages[k]!.minPercent, '% of nominal');
+    add('highest voltage', `phase ${v.phase}`, (s) => s.voltages[k]!.maxPercent, '% of nominal');
+  });
+  add('hours below voltage limit', 'board', (s) => s.hoursVoltageLow, 'h');
+  add('hours above voltage limit', 'board', (s) => s.hoursVoltageHigh, 'h');
+  if (r.before.unbalance) add('hours above unbalance limit', 'board', (s) => s.unbalance?.hoursAbove ?? null, 'h');
+  add('leading import', 'board', (s) => s.leadingHours, 'h');
+  r.before.energy.phases.forEach((p, k) => {
+    add('energy', `line ${p.phase}`, (s) => s.energy.phases[k]!.kWh, 'kWh');
+    add('reactive energy', `line ${p.phase}`, (s) => s.energy.phases[k]!.kvarh, 'kvarh');
+  });
+  add('billing power factor', 'period', (s) => s.energy.billingPf, '');
+  r.before.months.forEach((m, k) => {
+    add('imported energy', m.month, (s) => s.months[k]!.kWhImport, 'kWh');
+    add('lagging reactive energy', m.month, (s) => s.months[k]!.kvarhLagging, 'kvarh');
+    add('billing power factor', m.month, (s) => s.months[k]!.billingPf, '');
+    add('peak demand', m.month, (s) => s.months[k]!.peakKVA, 'kVA');
+    add('reactive charge', m.month, (s) => s.months[k]!.reactiveCharge, 'currency');
+    add('demand charge', m.month, (s) => s.months[k]!.demandCharge, 'currency');
+  });
+  r.bank?.steps.forEach((s) => rows.push([`bank step ${s.step} closings per year`, s.channel, null, s.closingsPerYear, 'operations']));
+  return rows.map((row) => row.map(cell).join(',')).join('\n') + '\n';
+}
+
+/** One row per interval: local time, currents, phase voltages, board P, Q, PF (and the same with the bank). */
+export function intervalCsv(study: ProfileStudy): string {
+  const f = study.before;
+  const phases = f.lineA.length;
+  const names = ['A', 'B', 'C'].slice(0, phases);
+  const set = (tag: string) => [...names.map((p) => `line ${p}${tag} A`), `neutral${tag} A`, ...names.map((p) => `phase ${p}${tag} %V`), `P${tag} kW`, `Q${tag} kvar`, `PF${tag}`];
+  const head = ['time', ...set(''), ...(study.after ? ['bank kvar', ...set(' with bank')] : [])];
+  const out: string[] = [head.join(',')];
+  const figures = (g: typeof f, i: number, vBase: number) => {
+    let w = 0;
+    let q = 0;
+    for (let k = 0; k < phases; k++) {
+      w += g.phaseW[k]![i]!;
+      q += g.phaseVar[k]![i]!;
+    }
+    const s = Math.hypot(w, q);
+    return [
+      ...g.lineA.map((c) => c[i]!.toFixed(2)),
+      g.neutralA[i]!.toFixed(2),
+      ...g.phaseV.map((c) => ((100 * c[i]!) / vBase).toFixed(2)),
+      (w / 1000).toFixed(3),
+      (q / 1000).toFixed(3),
+      s === 0 ? '' : (Math.abs(w) / s).toFixed(4),
+    ].join(',');
+  };
+  const vBase = study.nominalLineToNeutralV;
+  for (let i = 0; i < f.count; i++) {
+    let line = `${study.label(i)},${figures(f, i, vBase)}`;
+    if (study.after) line += `,${study.connectedKvar![i]!.toFixed(1)},${figures(study.after, i, vBase)}`;
+    out.push(line);
+  }
+  return out.join('\n') + '\n';
+}

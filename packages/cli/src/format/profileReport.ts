@@ -1,0 +1,146 @@
+/** ProfileResult → the text report of `trivar profile`. */
+import type { ProfileResult, ProfileSummary } from '@trivar/core';
+import { fixed, renderTable, section } from './textTable.js';
+
+const hours = (h: number) => (h === 0 ? '0' : h < 10 ? fixed(h, 2) : fixed(h, 1));
+const thousands = (x: number) => Math.round(x).toLocaleString('en-US');
+const money = (x: number | null) => (x === null ? '-' : fixed(x, 2));
+
+function dataLines(r: ProfileResult): string[] {
+  const s = r.sequence;
+  const lines = [`${thousands(r.intervals.count)} intervals of ${r.intervals.intervalSeconds} s, ${r.intervals.first} to ${r.intervals.last} (${r.timeZone})`];
+  if (s) {
+    const gaps = s.gaps.count
+      ? `${s.gaps.count} gap${s.gaps.count === 1 ? '' : 's'}, ${thousands(s.gaps.missingIntervals)} intervals (${hours(s.gaps.missingHours)} h) missing: ${
+          s.fill === 'none' ? 'left out of every figure (--fill-gaps hold or linear fills them)' : `filled by ${s.fill === 'hold' ? 'holding the last reading' : 'linear interpolation'} (${thousands(s.filledIntervals)} intervals made)`
+        }`
+      : 'no gaps';
+    lines.push(gaps);
+    if (s.duplicates.count) lines.push(`${s.duplicates.count} repeated time${s.duplicates.count === 1 ? '' : 's'}: the first reading kept (rows ${s.duplicates.rows.join(', ')}${s.duplicates.count > s.duplicates.rows.length ? ', ...' : ''})`);
+    if (s.ambiguousTimes) lines.push(`${s.ambiguousTimes} wall-clock times fall in the repeated hour when clocks go back: placed in row order`);
+    if (s.irregularSteps) lines.push(`${s.irregularSteps} steps between rows are not a whole number of intervals`);
+  }
+  if (r.undriven && r.undriven.loads.length)
+    lines.push(`${r.undriven.loads.length} board load${r.undriven.loads.length === 1 ? '' : 's'} with no column (${r.undriven.loads.slice(0, 4).join(', ')}${r.undriven.loads.length > 4 ? ', ...' : ''}): ${r.undriven.atRating ? 'held at rating' : 'taken as off (--unlisted-at-rating keeps them on)'}`);
+  lines.push(`solved on the ${r.path === 'closed-form' ? 'closed-form (Millman) path: phase-to-neutral loads and a neutral conductor' : 'nodal path'}`);
+  return lines.map((l) => `  ${l}`);
+}
+
+function currentTable(s: ProfileSummary): string {
+  return renderTable(
+    [{ header: 'conductor', align: 'left' }, { header: 'peak A' }, { header: 'at', align: 'left' }, { header: 'P99 A' }, { header: 'P95 A' }, { header: 'limit A' }, { header: 'hours over' }],
+    s.conductors.map((c) => [
+      c.conductor === 'N' ? 'neutral' : `line ${c.conductor}`,
+      fixed(c.maxA, 1),
+      c.maxAt,
+      fixed(c.p99A, 1),
+      fixed(c.p95A, 1),
+      c.ratingA === null ? '-' : fixed(c.ratingA, 0),
+      c.hoursAboveLimit === null ? '-' : hours(c.hoursAboveLimit),
+    ]),
+  );
+}
+
+function voltageTable(s: ProfileSummary): string {
+  return renderTable(
+    [{ header: 'phase', align: 'left' }, { header: 'lowest %' }, { header: 'at', align: 'left' }, { header: 'highest %' }, { header: 'at', align: 'left' }],
+    s.voltages.map((v) => [v.phase, fixed(v.minPercent, 1), v.minAt, fixed(v.maxPercent, 1), v.maxAt]),
+  );
+}
+
+function thresholdLines(s: ProfileSummary, r: ProfileResult): string[] {
+  const l = r.limits;
+  const out = [`below ${fixed(l.voltageLowPercent, 0)} % voltage: ${hours(s.hoursVoltageLow)} h · above ${fixed(l.voltageHighPercent, 0)} %: ${hours(s.hoursVoltageHigh)} h`];
+  if (s.unbalance)
+    out.push(`voltage unbalance |V2|/|V1|: peak ${fixed(s.unbalance.maxPercent, 2)} % at ${s.unbalance.maxAt}, P95 ${fixed(s.unbalance.p95Percent, 2)} %, above ${fixed(l.unbalancePercent, 1)} %: ${hours(s.unbalance.hoursAbove)} h`);
+  out.push(`import at a leading power factor: ${hours(s.leadingHours)} h`);
+  return out.map((x) => `  ${x}`);
+}
+
+function energyTable(s: ProfileSummary): string {
+  const rows = s.energy.phases.map((p) => [`line ${p.phase}`, thousands(p.kWh), thousands(p.kvarh)]);
+  rows.push(['board, imported', thousands(s.energy.kWhImport), thousands(s.energy.kvarhLagging) + ' lag']);
+  if (s.energy.kWhExport > 0 || s.energy.kvarhLeading > 0) rows.push(['board, exported / leading', thousands(s.energy.kWhExport), thousands(s.energy.kvarhLeading) + ' lead']);
+  return `${renderTable([{ header: '', align: 'left' }, { header: 'kWh' }, { header: 'kvarh' }], rows)}\n  billing power factor over the period: ${fixed(s.energy.billingPf, 3)}`;
+}
+
+function monthTable(s: ProfileSummary, after: ProfileSummary | null, currency: string): string {
+  const head = [
+    { header: 'month', align: 'left' as const },
+    { header: 'kWh' },
+    { header: 'kvarh lag' },
+    { header: 'billing PF' },
+    ...(after ? [{ header: 'with bank' }] : []),
+    { header: 'peak kVA' },
+    { header: `reactive ${currency}` },
+    ...(after ? [{ header: 'with bank' }] : []),
+    { header: `demand ${currency}` },
+  ];
+  const rows = s.months.map((m, k) => {
+    const a = after?.months[k];
+    return [
+      m.month,
+      thousands(m.kWhImport),
+      thousands(m.kvarhLagging),
+      fixed(m.billingPf, 3),
+      ...(a ? [fixed(a.billingPf, 3)] : []),
+      fixed(m.peakKVA, 1),
+      money(m.reactiveCharge),
+      ...(a ? [money(a.reactiveCharge)] : []),
+      money(m.demandCharge),
+    ];
+  });
+  return renderTable(head, rows);
+}
+
+function bankLines(r: ProfileResult): string {
+  const b = r.bank!;
+  const set = b.settings;
+  const sizing = b.sizedFromProfile
+    ? `sized from the profile: need at the ${fixed(set.coverShare * 100, 0)}th percentile of intervals ${Object.entries(b.needKvar ?? {})
+        .map(([c, v]) => `${c === 'ABC' ? 'three-phase' : `phase ${c}`} ${fixed(v, 1)} kvar`)
+        .join(', ')}`
+    : 'steps as given in profile.bank.steps';
+  const lines = [
+    `  ${sizing}; ${b.steps.length} steps, ${fixed(b.totalKvar, 1)} kvar in all`,
+    `  controller: target PF ${fixed(set.targetPf, 2)}, switching threshold ${fixed(set.responseShare, 2)} × smallest step, delay ${set.delaySeconds} s, reconnect after ${set.reconnectSeconds} s`,
+    '',
+    renderTable(
+      [{ header: 'step' }, { header: 'where', align: 'left' }, { header: 'kvar' }, { header: 'closings' }, { header: 'per year' }],
+      b.steps.map((s) => [String(s.step), s.channel === 'ABC' ? 'three-phase' : `phase ${s.channel}`, fixed(s.kvar, 1), thousands(s.closings), thousands(s.closingsPerYear)]),
+    ),
+    `  typical limit ${thousands(b.operationsPerYearLimit)} operations a year per step (IEC 60831-1 practice); a capacitor contactor lasts about ${thousands(b.contactorLifeOperations)} operations${
+      b.yearsToContactorLife === null ? '' : ` — the busiest step reaches that in ${fixed(b.yearsToContactorLife, 1)} years`
+    }`,
+    `  billing power factor ${fixed(r.before.energy.billingPf, 3)} → ${fixed(b.after.energy.billingPf, 3)}; leading import ${hours(r.before.leadingHours)} h → ${hours(b.after.leadingHours)} h`,
+    `  largest voltage rise from the bank ${fixed(b.voltageRisePercent, 2)} % of nominal (${b.voltageRiseAt}); highest phase voltage with it ${fixed(Math.max(...b.after.voltages.map((v) => v.maxPercent)), 1)} %`,
+  ];
+  return lines.join('\n');
+}
+
+function worstTable(s: ProfileSummary): string {
+  const rows = (s.worstByNeutral.length ? s.worstByNeutral : s.worstByLine).map((w) => [w.at, fixed(w.maxLineA, 1), fixed(w.neutralA, 1), fixed(w.unbalancePercent, 2)]);
+  return renderTable([{ header: 'interval', align: 'left' }, { header: 'highest line A' }, { header: 'neutral A' }, { header: 'unbalance %' }], rows);
+}
+
+export function renderProfileReport(r: ProfileResult, currency: string): string {
+  const s = r.before;
+  const parts = [
+    `${r.board} — load over time`,
+    ...dataLines(r),
+    section('Currents'),
+    currentTable(s),
+    section('Phase voltage at the board (% of nominal)'),
+    voltageTable(s),
+    ...thresholdLines(s, r),
+    section('Energy'),
+    energyTable(s),
+    section('Calendar months'),
+    monthTable(s, r.bank?.after ?? null, currency),
+    section(s.worstByNeutral.length ? 'Intervals with the highest neutral current' : 'Intervals with the highest line current'),
+    worstTable(s),
+  ];
+  if (r.bank) parts.push(section('Automatic bank over the profile'), bankLines(r));
+  parts.push(section('Cautions'), ...r.cautions.map((c) => `  - ${c}`));
+  return `${parts.join('\n')}\n`;
+}

@@ -1,0 +1,172 @@
+/**
+ * Time order, interval length, duplicates and gaps of interval data. Gaps are
+ * reported and left as gaps unless the caller asks for a fill, and the report
+ * says which fill was used and how many intervals it made.
+ */
+import { InputError, inputIssue } from '../errors.js';
+import type { RawIntervals } from './readIntervalRows.js';
+
+export const GAP_FILLS = ['none', 'hold', 'linear'] as const;
+/** none: leave gaps out of every figure; hold: repeat the last reading; linear: interpolate between the readings either side. */
+export type GapFill = (typeof GAP_FILLS)[number];
+
+export interface GapReading {
+  /** UTC ms of the last reading before the gap and the first after it. */
+  readonly afterUtcMs: number;
+  readonly beforeUtcMs: number;
+  readonly missingIntervals: number;
+}
+
+export interface SequenceReport {
+  readonly rowsRead: number;
+  readonly intervalSeconds: number;
+  readonly duplicates: { readonly count: number; /** file rows of the first few dropped duplicates */ readonly rows: readonly number[] };
+  readonly gaps: { readonly count: number; readonly missingIntervals: number; readonly missingHours: number; /** the longest few */ readonly longest: readonly GapReading[] };
+  /** Steps that are not a whole number of intervals (irregular logging). */
+  readonly irregularSteps: number;
+  readonly ambiguousTimes: number;
+  readonly fill: GapFill;
+  readonly filledIntervals: number;
+}
+
+export interface IntervalTable {
+  readonly count: number;
+  readonly utcMs: Float64Array;
+  readonly values: readonly Float64Array[];
+  readonly intervalMs: number;
+  /** 1 where the interval was made by the gap fill. */
+  readonly filled: Uint8Array;
+  readonly report: SequenceReport;
+}
+
+/** Joins row chunks read in parallel, in order. */
+export function concatRawIntervals(parts: readonly RawIntervals[]): RawIntervals {
+  if (parts.length === 1) return parts[0]!;
+  const count = parts.reduce((s, p) => s + p.count, 0);
+  const join = <T extends Float64Array | Int32Array>(pick: (p: RawIntervals) => T, make: (n: number) => T): T => {
+    const out = make(count);
+    let at = 0;
+    for (const p of parts) {
+      out.set(pick(p), at);
+      at += p.count;
+    }
+    return out;
+  };
+  return {
+    count,
+    utcMs: join((p) => p.utcMs, (n) => new Float64Array(n)),
+    rows: join((p) => p.rows, (n) => new Int32Array(n)),
+    values: parts[0]!.values.map((_, c) => join((p) => p.values[c]!, (n) => new Float64Array(n))),
+    ambiguousTimes: parts.reduce((s, p) => s + p.ambiguousTimes, 0),
+  };
+}
+
+/** The most common positive step between rows, ms. */
+function typicalStep(utc: Float64Array): number {
+  const counts = new Map<number, number>();
+  for (let i = 1; i < utc.length; i++) {
+    const d = utc[i]! - utc[i - 1]!;
+    if (d > 0) counts.set(d, (counts.get(d) ?? 0) + 1);
+  }
+  let best = 0;
+  let bestCount = 0;
+  for (const [d, n] of counts) if (n > bestCount || (n === bestCount && d < best)) [best, bestCount] = [d, n];
+  return best;
+}
+
+/**
+ * @throws {InputError} for rows out of time order or an interval outside 1 s – 1 h.
+ */
+export function checkIntervalSequence(raw: RawIntervals, fill: GapFill = 'none'): IntervalTable {
+  const { utcMs: utc, rows } = raw;
+  const backwards: number[] = [];
+  for (let i = 1; i < raw.count && backwards.length < 10; i++) if (utc[i]! < utc[i - 1]!) backwards.push(i);
+  if (backwards.length)
+    throw new InputError(
+      backwards.map((i) =>
+        inputIssue('out_of_order', `row ${rows[i]}, column 1`, `a time after the row before (row ${rows[i - 1]}); sort the file by time`, new Date(utc[i]!).toISOString()),
+      ),
+      'the interval data is not in time order',
+    );
+  const step = raw.count > 1 ? typicalStep(utc) : 3_600_000;
+  if (!(step >= 1000 && step <= 3_600_000))
+    throw new InputError([inputIssue('bad_interval', 'column 1', 'intervals from 1 s to 1 h', `${step / 1000} s between most rows`)], 'the interval data cannot be used');
+
+  // Keep the first of equal times; find gaps.
+  const keep = new Uint8Array(raw.count);
+  const duplicateRows: number[] = [];
+  let duplicates = 0;
+  let irregularSteps = 0;
+  const gaps: GapReading[] = [];
+  let missing = 0;
+  keep[0] = 1;
+  let last = 0;
+  for (let i = 1; i < raw.count; i++) {
+    const d = utc[i]! - utc[last]!;
+    if (d === 0) {
+      duplicates++;
+      if (duplicateRows.length < 10) duplicateRows.push(rows[i]!);
+      continue;
+    }
+    keep[i] = 1;
+    const steps = d / step;
+    if (Math.abs(steps - Math.round(steps)) > 1e-6) irregularSteps++;
+    const lost = Math.round(steps) - 1;
+    if (lost >= 1) {
+      gaps.push({ afterUtcMs: utc[last]!, beforeUtcMs: utc[i]!, missingIntervals: lost });
+      missing += lost;
+    }
+    last = i;
+  }
+  const kept = raw.count - duplicates;
+  const made = fill === 'none' ? 0 : missing;
+  const total = kept + made;
+  const outUtc = new Float64Array(total);
+  const outValues = raw.values.map(() => new Float64Array(total));
+  const filled = new Uint8Array(total);
+  let o = 0;
+  let prev = -1;
+  for (let i = 0; i < raw.count; i++) {
+    if (!keep[i]) continue;
+    if (prev >= 0 && made > 0) {
+      const lost = Math.round((utc[i]! - utc[prev]!) / step) - 1;
+      for (let k = 1; k <= lost; k++) {
+        outUtc[o] = utc[prev]! + k * step;
+        const f = k / (lost + 1);
+        raw.values.forEach((v, c) => {
+          outValues[c]![o] = fill === 'hold' ? v[prev]! : v[prev]! + (v[i]! - v[prev]!) * f;
+        });
+        filled[o] = 1;
+        o++;
+      }
+    }
+    outUtc[o] = utc[i]!;
+    raw.values.forEach((v, c) => {
+      outValues[c]![o] = v[i]!;
+    });
+    o++;
+    prev = i;
+  }
+  return {
+    count: total,
+    utcMs: outUtc,
+    values: outValues,
+    intervalMs: step,
+    filled,
+    report: {
+      rowsRead: raw.count,
+      intervalSeconds: step / 1000,
+      duplicates: { count: duplicates, rows: duplicateRows },
+      gaps: {
+        count: gaps.length,
+        missingIntervals: missing,
+        missingHours: (missing * step) / 3_600_000,
+        longest: [...gaps].sort((a, b) => b.missingIntervals - a.missingIntervals).slice(0, 5),
+      },
+      irregularSteps,
+      ambiguousTimes: raw.ambiguousTimes,
+      fill,
+      filledIntervals: made,
+    },
+  };
+}

@@ -1,0 +1,222 @@
+/**
+ * What each column of an interval-data file means, read from its header.
+ *
+ * The first column is the time. Every other header is `<target> [<quantity>]`:
+ * the target is `phase A`/`phase B`/`phase C` (a metered phase total), a group
+ * from the board file's `profile.groups`, or a load name; the quantity is one
+ * of kW, kvar, pf, A, x (x = fraction of the rating). A target takes one of the
+ * combinations in ACCEPTED_SETS. Loads that no column drives are off unless the
+ * caller keeps them at their rating.
+ */
+import type { Board, BoardLoad, PhaseId } from '../board/boardModel.js';
+import type { ComplexValue } from '../complex.js';
+import { InputError, inputIssue, type InputIssue } from '../errors.js';
+import type { DriverColumns, DriverSpec } from './batchNetwork.js';
+
+export const QUANTITIES = ['kW', 'kvar', 'pf', 'A', 'x'] as const;
+export type Quantity = (typeof QUANTITIES)[number];
+
+/** Accepted quantity sets for one target, in the words an error shows. */
+export const ACCEPTED_SETS: readonly (readonly Quantity[])[] = [['x'], ['kW'], ['kW', 'kvar'], ['kW', 'pf'], ['A', 'pf']];
+
+export interface ColumnTarget {
+  /** As written in the header. */
+  readonly name: string;
+  readonly kind: 'phase' | 'group' | 'load';
+  /** Board load indices the target drives (for a phase: the added metered load). */
+  readonly loads: readonly number[];
+  /** Data-column index (0 = first column after the time) of each quantity given. */
+  readonly columns: Partial<Record<Quantity, number>>;
+}
+
+export interface ColumnPlan {
+  /** The board with one metered phase-to-neutral load added per phase target. */
+  readonly board: Board;
+  readonly timeHeader: string;
+  readonly dataHeaders: readonly string[];
+  readonly targets: readonly ColumnTarget[];
+  /** Loads of the board file that no column drives. */
+  readonly undriven: readonly string[];
+  readonly undrivenAtRating: boolean;
+}
+
+const HEADER = /^(.+?)\s*\[\s*([A-Za-z]+)\s*\]$/;
+const PHASE = /^phase\s+([ABC])$/i;
+
+const where = (column: number, header: string) => `header, column ${column + 1} ("${header}")`;
+
+export interface ColumnPlanOptions {
+  /** Named load sets (the board file's `profile.groups`). */
+  readonly groups?: Readonly<Record<string, readonly string[]>>;
+  /** Keep loads that no column drives at their rating (default: off). */
+  readonly undrivenAtRating?: boolean;
+}
+
+/**
+ * Reads the header row against the board.
+ * @throws {InputError} naming each header cell that is wrong, with its column.
+ */
+export function planColumns(board: Board, header: readonly string[], options: ColumnPlanOptions = {}): ColumnPlan {
+  const issues: InputIssue[] = [];
+  if (header.length < 2) throw new InputError([inputIssue('missing', 'header', 'a time column and at least one data column')], 'the interval data cannot be read');
+  const byName = new Map<string, { kind: ColumnTarget['kind']; loads: number[]; columns: Partial<Record<Quantity, number>> }>();
+  const loads: BoardLoad[] = [...board.loads];
+  const loadIndex = new Map(board.loads.map((l, i) => [l.name, i]));
+  const groups = options.groups ?? {};
+  header.slice(1).forEach((raw, c) => {
+    const cell = raw.trim();
+    const at = where(c + 1, cell);
+    const m = HEADER.exec(cell);
+    if (!m || !(QUANTITIES as readonly string[]).includes(m[2]!)) {
+      issues.push(inputIssue('bad_header', at, `"<load, group or phase A/B/C> [<${QUANTITIES.join('|')}>]", e.g. "oven [kW]"`, cell));
+      return;
+    }
+    const name = m[1]!;
+    const quantity = m[2] as Quantity;
+    let target = byName.get(name);
+    if (!target) {
+      const phase = PHASE.exec(name);
+      if (phase) {
+        const p = phase[1]!.toUpperCase() as PhaseId;
+        if (!board.phases.includes(p) || !board.hasNeutral) {
+          issues.push(inputIssue('unknown_target', at, `a phase of this board with a neutral (${board.hasNeutral ? board.phases.join(', ') : 'this board has none'})`, name));
+          return;
+        }
+        const index =
+          loads.push({
+            name: `metered phase ${p}`,
+            connection: `${p}-N`,
+            model: 'constant-power',
+            origin: 'added',
+            branches: [{ from: p, to: 'N', sNominal: { re: 0, im: 0 }, vNominal: board.nominalLineToNeutralV, zip: { z: 0, i: 0, p: 1 } }],
+          }) - 1;
+        target = { kind: 'phase', loads: [index], columns: {} };
+      } else if (groups[name]) {
+        const members = groups[name]!.map((n) => loadIndex.get(n));
+        if (members.some((x) => x === undefined)) {
+          issues.push(inputIssue('unknown_load', `profile.groups.${name}`, 'names of loads on the board', groups[name]!.find((n) => !loadIndex.has(n))));
+          return;
+        }
+        target = { kind: 'group', loads: members as number[], columns: {} };
+      } else if (loadIndex.has(name)) target = { kind: 'load', loads: [loadIndex.get(name)!], columns: {} };
+      else {
+        issues.push(inputIssue('unknown_target', at, 'a load name on the board, a group from profile.groups, or "phase A/B/C"', name));
+        return;
+      }
+      byName.set(name, target);
+    }
+    if (target.columns[quantity] !== undefined) {
+      issues.push(inputIssue('duplicate_column', at, `one "${name} [${quantity}]" column`, cell));
+      return;
+    }
+    target.columns[quantity] = c;
+  });
+  const drivenBy = new Map<number, string>();
+  const targets: ColumnTarget[] = [];
+  for (const [name, t] of byName) {
+    const given = QUANTITIES.filter((q) => t.columns[q] !== undefined);
+    const accepted = ACCEPTED_SETS.some((set) => set.length === given.length && set.every((q) => given.includes(q)));
+    if (!accepted)
+      issues.push(
+        inputIssue('bad_quantities', `header ("${name}")`, `one of these column sets per target: ${ACCEPTED_SETS.map((s) => s.map((q) => `[${q}]`).join('+')).join(', ')}`, given.map((q) => `[${q}]`).join('+')),
+      );
+    if (t.columns.A !== undefined && !(t.kind === 'phase' || t.loads.every((l) => isPhaseToNeutral(loads[l]!)))) {
+      issues.push(inputIssue('bad_quantities', `header ("${name} [A]")`, 'current columns only for phases and phase-to-neutral loads (give kW or x for others)', name));
+    }
+    for (const l of t.loads) {
+      const other = drivenBy.get(l);
+      if (other) issues.push(inputIssue('driven_twice', `header ("${name}")`, `each load driven by one column target; "${loads[l]!.name}" is also in "${other}"`, name));
+      drivenBy.set(l, name);
+    }
+    targets.push({ name, kind: t.kind, loads: t.loads, columns: t.columns });
+  }
+  if (issues.length) throw new InputError(issues, 'the interval data header is not valid');
+  return {
+    board: { ...board, loads },
+    timeHeader: header[0]!.trim(),
+    dataHeaders: header.slice(1).map((h) => h.trim()),
+    targets,
+    undriven: board.loads.filter((_, i) => !drivenBy.has(i)).map((l) => l.name),
+    undrivenAtRating: options.undrivenAtRating ?? false,
+  };
+}
+
+const isPhaseToNeutral = (load: BoardLoad) => load.branches.length === 1 && load.branches[0]!.to === 'N';
+
+export const ratedPower = (load: BoardLoad): ComplexValue =>
+  load.branches.reduce((s, b) => ({ re: s.re + b.sNominal.re, im: s.im + b.sNominal.im }), { re: 0, im: 0 });
+
+/**
+ * The batch drivers of a plan: per target, either a scale factor on each load's
+ * rating (x) or a complex total P + jQ (every other column set; see
+ * driverColumns) shared by the loads in proportion to their rated kVA.
+ * Loads kept at rating get one constant driver at the end.
+ */
+export function planDrivers(plan: ColumnPlan): DriverSpec[] {
+  const { board } = plan;
+  const drivers: DriverSpec[] = plan.targets.map((t) => {
+    if (t.columns.x !== undefined) return { name: t.name, loads: t.loads.map((l) => ({ load: l, coefficient: ratedPower(board.loads[l]!) })) };
+    const kva = t.loads.map((l) => Math.hypot(ratedPower(board.loads[l]!).re, ratedPower(board.loads[l]!).im));
+    const total = kva.reduce((a, b) => a + b, 0);
+    return {
+      name: t.name,
+      loads: t.loads.map((l, k) => ({ load: l, coefficient: { re: total > 0 ? kva[k]! / total : 1 / t.loads.length, im: 0 } })),
+    };
+  });
+  if (plan.undrivenAtRating) {
+    const rest = plan.undriven.map((name) => board.loads.findIndex((l) => l.name === name));
+    if (rest.length) drivers.push({ name: 'loads at rating', loads: rest.map((l) => ({ load: l, coefficient: ratedPower(board.loads[l]!) })) });
+  }
+  return drivers;
+}
+
+/**
+ * Per-interval driver values from the table's columns, in planDrivers' order:
+ * x as it is; kW alone with the target's rated tan φ (unity for a metered
+ * phase); kW + kvar; kW + pf (negative pf = leading); A + pf with apparent
+ * power = A × nominal line-to-neutral voltage.
+ */
+export function driverColumns(plan: ColumnPlan, values: readonly Float64Array[], count: number): DriverColumns {
+  const re: Float64Array[] = [];
+  const im: Float64Array[] = [];
+  const vLN = plan.board.nominalLineToNeutralV;
+  for (const t of plan.targets) {
+    const r = new Float64Array(count);
+    const m = new Float64Array(count);
+    const col = (q: Quantity) => (t.columns[q] === undefined ? null : values[t.columns[q]]!);
+    const x = col('x');
+    const kW = col('kW');
+    const kvar = col('kvar');
+    const pf = col('pf');
+    const amps = col('A');
+    const rated = t.loads.reduce((s, l) => ({ re: s.re + ratedPower(plan.board.loads[l]!).re, im: s.im + ratedPower(plan.board.loads[l]!).im }), { re: 0, im: 0 });
+    const tanRated = rated.re !== 0 ? rated.im / rated.re : 0;
+    for (let i = 0; i < count; i++) {
+      if (x) r[i] = x[i]!;
+      else if (kW && kvar) {
+        r[i] = kW[i]! * 1000;
+        m[i] = kvar[i]! * 1000;
+      } else if (kW && pf) {
+        const p = kW[i]! * 1000;
+        const f = pf[i]!;
+        r[i] = p;
+        m[i] = Math.sign(f) * ((Math.abs(p) * Math.sqrt(1 - f * f)) / Math.abs(f));
+      } else if (kW) {
+        r[i] = kW[i]! * 1000;
+        m[i] = r[i]! * tanRated;
+      } else if (amps && pf) {
+        const s = amps[i]! * vLN;
+        const f = pf[i]!;
+        r[i] = s * Math.abs(f);
+        m[i] = Math.sign(f) * s * Math.sqrt(1 - f * f);
+      }
+    }
+    re.push(r);
+    im.push(m);
+  }
+  if (plan.undrivenAtRating && plan.undriven.length) {
+    re.push(new Float64Array(count).fill(1));
+    im.push(new Float64Array(count));
+  }
+  return { count, re, im };
+}

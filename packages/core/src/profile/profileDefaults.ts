@@ -1,0 +1,26 @@
+/** Every default of the profile study, with its reason, in one place. */
+export const PROFILE_DEFAULTS = {
+  /** IEC 61000-2-2 / EN 50160 compatibility level for |V2|/|V1| (from memory; METHODS §3). */
+  unbalancePercent: 2,
+  /** EN 50160: 230 V ± 10 % (METHODS §12, from memory). */
+  voltageLowPercent: 90,
+  voltageHighPercent: 110,
+  /** Common demand-meter window (common practice, no source). */
+  demandWindowMinutes: 15,
+  /** A usual tariff target; the correction study uses the same default. */
+  targetPf: 0.95,
+  /** Size the bank to hold the target in 95 % of intervals: the last few per cent of peaks cost the most kvar. */
+  coverShare: 0.95,
+  /** Controllers commonly have 6, 8 or 12 outputs (METHODS §10, common practice). */
+  stepCount: 6,
+  /** C/k set at 0.6–0.7 of the smallest step to avoid hunting (METHODS §10, from memory). */
+  responseShare: 0.67,
+  /** Switching delay of tens of seconds (METHODS §10, common practice). */
+  delaySeconds: 30,
+  /** IEC 60831-1: discharge to ≤ 75 V within 3 min; units with fast-discharge resistors or reactors allow ~60 s (common practice, no source). */
+  reconnectSeconds: 60,
+  /** IEC 60831-1 manufacturer note: ≤ 5000 switching operations per year (METHODS §4, confirmed secondary). */
+  operationsPerYearLimit: 5000,
+  /** A capacitor-duty contactor's electrical life, order of 100 000 operations (from memory). */
+  contactorLifeOperations: 100_000,
+} as const;

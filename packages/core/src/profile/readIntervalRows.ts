@@ -1,0 +1,136 @@
+/**
+ * Interval-data rows → typed columns, one record at a time (the CLI streams
+ * records from its CSV parser into `push`). Every bad cell is reported with its
+ * row and column; reading stops after MAX_ISSUES of them.
+ */
+import { InputError, inputIssue, type InputIssue } from '../errors.js';
+import type { ColumnPlan } from './columnPlan.js';
+import { parseTimestamp, TIMESTAMP_EXPECTED } from './intervalTimestamp.js';
+import { createZoneClock, type ZoneClock } from './zoneClock.js';
+
+const MAX_ISSUES = 20;
+
+/** Rows as read, in file order, before order, gaps and duplicates are checked. */
+export interface RawIntervals {
+  readonly count: number;
+  /** UTC instant of each row, ms. */
+  readonly utcMs: Float64Array;
+  /** File row of each record (the header is row 1). */
+  readonly rows: Int32Array;
+  /** One column per data header. */
+  readonly values: readonly Float64Array[];
+  /** Wall-clock times that occur twice (clocks going back) and were placed by row order. */
+  readonly ambiguousTimes: number;
+}
+
+export interface RowReader {
+  /** Reads one record; `row` is its row in the file (header = 1). */
+  push(record: readonly string[], row: number): void;
+  /** @throws {InputError} with every bad cell found (row and column). */
+  finish(): RawIntervals;
+}
+
+export interface RowReaderOptions {
+  /** IANA zone for times written without an offset. @defaultValue 'UTC' */
+  readonly timeZone?: string;
+  /** Expected row count, to size the columns once. */
+  readonly expectedRows?: number;
+}
+
+const cellPath = (plan: ColumnPlan, row: number, column: number) =>
+  `row ${row}, column ${column + 1} ("${column === 0 ? plan.timeHeader : plan.dataHeaders[column - 1]}")`;
+
+function fail(issues: InputIssue[]): never {
+  throw new InputError(issues, 'the interval data cannot be read');
+}
+
+/** Range a quantity's value must fall in, and how to say it. */
+function checkValue(header: string, x: number): string | null {
+  const q = /\[\s*([A-Za-z]+)\s*\]$/.exec(header)?.[1];
+  if (q === 'pf' && !(x !== 0 && Math.abs(x) <= 1)) return 'a power factor with 0 < |pf| <= 1 (negative = leading)';
+  if ((q === 'A' || q === 'x') && x < 0) return `a number >= 0 for [${q}]`;
+  return null;
+}
+
+export function createRowReader(plan: ColumnPlan, options: RowReaderOptions = {}): RowReader {
+  const width = plan.dataHeaders.length + 1;
+  const clock: ZoneClock = createZoneClock(options.timeZone ?? 'UTC');
+  let capacity = Math.max(1024, options.expectedRows ?? 0);
+  let utcMs = new Float64Array(capacity);
+  let rows = new Int32Array(capacity);
+  let values = plan.dataHeaders.map(() => new Float64Array(capacity));
+  let count = 0;
+  let ambiguousTimes = 0;
+  const issues: InputIssue[] = [];
+  const report = (issue: InputIssue) => {
+    issues.push(issue);
+    if (issues.length >= MAX_ISSUES) fail([...issues, inputIssue('too_many', 'file', 'fewer problems', `more than ${MAX_ISSUES}; reading stopped`)]);
+  };
+  const grow = () => {
+    capacity *= 2;
+    const u = new Float64Array(capacity);
+    u.set(utcMs);
+    utcMs = u;
+    const r = new Int32Array(capacity);
+    r.set(rows);
+    rows = r;
+    values = values.map((v) => {
+      const w = new Float64Array(capacity);
+      w.set(v);
+      return w;
+    });
+  };
+  return {
+    push(record, row) {
+      if (record.length !== width) {
+        report(inputIssue('bad_row', `row ${row}`, `${width} fields like the header`, `${record.length} fields`));
+        return;
+      }
+      const t = parseTimestamp(record[0]!);
+      if (!t.ok) {
+        report(inputIssue('bad_time', cellPath(plan, row, 0), TIMESTAMP_EXPECTED, record[0]));
+        return;
+      }
+      let instant: number;
+      if (t.offsetMs !== null) instant = t.wallMs - t.offsetMs;
+      else {
+        const candidates = clock.instantsOf(t.wallMs);
+        if (candidates.length === 0) {
+          report(
+            inputIssue('nonexistent_time', cellPath(plan, row, 0), `a time that exists in ${clock.zone} (clocks go forward over this one; write the offset, or check the logger's clock)`, record[0]),
+          );
+          return;
+        }
+        instant = candidates[0]!;
+        if (candidates.length > 1) {
+          ambiguousTimes++;
+          // The hour that repeats when clocks go back: the first pass is the earlier instant.
+          const previous = count > 0 ? utcMs[count - 1]! : Number.NEGATIVE_INFINITY;
+          instant = candidates.find((c) => c > previous) ?? candidates[0]!;
+        }
+      }
+      if (count === capacity) grow();
+      let ok = true;
+      for (let c = 1; c < width; c++) {
+        const text = record[c]!;
+        const x = text.trim() === '' ? Number.NaN : Number(text);
+        const bad = Number.isFinite(x) ? checkValue(plan.dataHeaders[c - 1]!, x) : 'a number (an empty cell is not read as zero: leave the row out to make a gap)';
+        if (bad) {
+          report(inputIssue('bad_value', cellPath(plan, row, c), bad, text));
+          ok = false;
+          continue;
+        }
+        values[c - 1]![count] = x;
+      }
+      if (!ok) return;
+      utcMs[count] = instant;
+      rows[count] = row;
+      count++;
+    },
+    finish() {
+      if (issues.length) fail(issues);
+      if (count === 0) fail([inputIssue('missing', 'file', 'at least one data row after the header')]);
+      return { count, utcMs: utcMs.subarray(0, count), rows: rows.subarray(0, count), values: values.map((v) => v.subarray(0, count)), ambiguousTimes };
+    },
+  };
+}

@@ -1,0 +1,86 @@
+/**
+ * An automatic bank over the profile: each interval is solved with the steps
+ * that are connected, the controller reads the result and switches for the
+ * next interval. Steps are constant-impedance capacitors (output ∝ V², so the
+ * voltage they raise is in the solve): three-phase steps as a star to the
+ * neutral on a board with one, else as a delta; single-phase steps phase to neutral.
+ */
+import type { Board, Terminal } from '../board/boardModel.js';
+import { compileBatchNetwork, edgeIndex, edgePowersAt, type BatchEdge, type DriverColumns, type DriverSpec } from './batchNetwork.js';
+import { allocateFigures, createBatchKernel, recordInterval, type BatchSolveOptions, type IntervalFigures } from './solveBatch.js';
+import { createBankController, type SwitchingSettings, type SwitchedStep, type StepChannel } from './bankController.js';
+
+export interface BankRun {
+  readonly figures: IntervalFigures;
+  /** Connected kvar (nominal) during each interval. */
+  readonly connectedKvar: Float64Array;
+  readonly closings: readonly number[];
+  readonly openings: readonly number[];
+  readonly path: 'closed-form' | 'nodal';
+}
+
+/** Edges (and share of the step's kvar on each) a step occupies on this board. */
+function stepEdges(board: Board, channel: StepChannel): { edge: BatchEdge; share: number }[] {
+  const ln = board.nominalLineToNeutralV;
+  const ll = board.nominalLineToLineV ?? ln;
+  if (channel !== 'ABC') return [{ edge: { from: channel, to: 'N', vNominal: ln }, share: 1 }];
+  if (board.hasNeutral) return board.phases.map((p) => ({ edge: { from: p, to: 'N' as Terminal, vNominal: ln }, share: 1 / board.phases.length }));
+  return [
+    ['A', 'B'],
+    ['B', 'C'],
+    ['C', 'A'],
+  ].map(([from, to]) => ({ edge: { from: from as Terminal, to: to as Terminal, vNominal: ll }, share: 1 / 3 }));
+}
+
+export interface SimulateBankInput {
+  readonly board: Board;
+  readonly drivers: readonly DriverSpec[];
+  readonly columns: DriverColumns;
+  readonly utcMs: Float64Array;
+  readonly intervalMs: number;
+  readonly steps: readonly SwitchedStep[];
+  readonly settings: SwitchingSettings;
+  readonly solve?: BatchSolveOptions;
+}
+
+export function simulateBank(input: SimulateBankInput): BankRun {
+  const { board, steps } = input;
+  const layout = steps.map((s) => stepEdges(board, s.channel));
+  const net = compileBatchNetwork(board, input.drivers, layout.flat().map((x) => x.edge));
+  const stepSlots = layout.map((edges) => edges.map(({ edge, share }) => ({ e: edgeIndex(net, edge.from, edge.to, edge.vNominal), share })));
+  const kernel = createBatchKernel(net, input.solve);
+  const n = input.columns.count;
+  const figures = allocateFigures(n, board.phases.length);
+  const connectedKvar = new Float64Array(n);
+  const controller = createBankController(steps, input.settings);
+  const powers = new Float64Array(net.edges.length * 6);
+  const phaseIndex = new Map(board.phases.map((p, k) => [p, k]));
+  for (let i = 0; i < n; i++) {
+    edgePowersAt(net, input.columns, i, powers);
+    let kvar = 0;
+    for (let s = 0; s < steps.length; s++) {
+      if (!controller.on[s]) continue;
+      kvar += steps[s]!.kvar;
+      // A capacitor draws −jQ at nominal voltage (load convention), all of it constant impedance.
+      for (const { e, share } of stepSlots[s]!) powers[e * 6 + 1] = powers[e * 6 + 1]! - steps[s]!.kvar * 1000 * share;
+    }
+    connectedKvar[i] = kvar;
+    kernel.solve(powers, i);
+    recordInterval(kernel.state, board.sequence, figures, i);
+    if (i > 0 && input.utcMs[i]! - input.utcMs[i - 1]! > input.intervalMs) controller.interrupt();
+    controller.observe(input.utcMs[i]!, input.intervalMs, (channel) => {
+      if (channel === 'ABC') {
+        let w = 0;
+        let q = 0;
+        for (let k = 0; k < board.phases.length; k++) {
+          w += figures.phaseW[k]![i]!;
+          q += figures.phaseVar[k]![i]!;
+        }
+        return { w, var: q };
+      }
+      const k = phaseIndex.get(channel)!;
+      return { w: figures.phaseW[k]![i]!, var: figures.phaseVar[k]![i]! };
+    });
+  }
+  return { figures, connectedKvar, closings: [...controller.closings], openings: [...controller.openings], path: kernel.path };
+}

@@ -1,0 +1,223 @@
+/**
+ * The profile study: interval data (or scenarios) through the batch kernel,
+ * summaries before any correction, and optionally an automatic bank simulated
+ * over the same intervals with the summary after it.
+ */
+import type { Board } from '../board/boardModel.js';
+import type { DriverColumns, DriverSpec } from './batchNetwork.js';
+import { compileBatchNetwork } from './batchNetwork.js';
+import type { SwitchedStep } from './bankController.js';
+import type { SequenceReport } from './checkIntervalSequence.js';
+import { maximumOf } from './intervalStatistics.js';
+import { PROFILE_DEFAULTS } from './profileDefaults.js';
+import type { ProfileSpec } from './profileSpec.js';
+import { simulateBank } from './simulateBank.js';
+import { sizeBankSteps } from './sizeBankSteps.js';
+import { allocateFigures, solveBatch, type BatchSolveOptions, type IntervalFigures } from './solveBatch.js';
+import { summariseFigures, type ProfileSummary, type ResolvedLimits, type SummaryContext } from './summariseFigures.js';
+import { createZoneClock, monthKeyOf } from './zoneClock.js';
+import { PROFILE_CAUTIONS } from './profileWording.js';
+
+export interface ProfileStudyInput {
+  /** The board as the drivers see it (see planColumns: metered phases added). */
+  readonly board: Board;
+  readonly drivers: readonly DriverSpec[];
+  readonly columns: DriverColumns;
+  readonly utcMs: Float64Array;
+  readonly intervalMs: number;
+  readonly sequence?: SequenceReport;
+  readonly undriven?: { readonly loads: readonly string[]; readonly atRating: boolean };
+  readonly profile?: ProfileSpec;
+  /** Per-interval figures already solved (e.g. by worker threads); solved here when absent. */
+  readonly before?: IntervalFigures;
+  readonly beforePath?: 'closed-form' | 'nodal';
+}
+
+export interface ProfileStudyOptions {
+  /** IANA zone for calendar months and the times shown. @defaultValue 'UTC' */
+  readonly timeZone?: string;
+  /** Simulate an automatic bank (sized from the profile unless profile.bank.steps is given). @defaultValue false */
+  readonly bank?: boolean;
+  /** Overrides profile.bank.targetPf. */
+  readonly targetPf?: number;
+  readonly solve?: BatchSolveOptions;
+  readonly onProgress?: (stage: 'solve' | 'bank', done: number, total: number) => void;
+}
+
+export interface BankStepRun {
+  readonly step: number;
+  readonly channel: string;
+  readonly kvar: number;
+  readonly closings: number;
+  readonly openings: number;
+  /** Closings scaled to a year of the data's span. */
+  readonly closingsPerYear: number;
+}
+
+export interface ProfileBankResult {
+  readonly sizedFromProfile: boolean;
+  readonly needKvar: Readonly<Record<string, number>> | null;
+  readonly steps: readonly BankStepRun[];
+  readonly totalKvar: number;
+  readonly settings: {
+    readonly targetPf: number;
+    readonly coverShare: number;
+    readonly responseShare: number;
+    readonly delaySeconds: number;
+    readonly reconnectSeconds: number;
+  };
+  readonly operationsPerYearLimit: number;
+  readonly contactorLifeOperations: number;
+  /** Years until the busiest step's contactor reaches its typical life. */
+  readonly yearsToContactorLife: number | null;
+  /** Largest rise of any phase voltage the bank causes in one interval, % of nominal, and when. */
+  readonly voltageRisePercent: number;
+  readonly voltageRiseAt: string;
+  readonly after: ProfileSummary;
+}
+
+export interface ProfileResult {
+  readonly board: string;
+  readonly path: 'closed-form' | 'nodal';
+  readonly timeZone: string;
+  readonly intervals: { readonly count: number; readonly intervalSeconds: number; readonly first: string; readonly last: string };
+  readonly sequence: SequenceReport | null;
+  readonly undriven: { readonly loads: readonly string[]; readonly atRating: boolean } | null;
+  readonly limits: ResolvedLimits;
+  readonly before: ProfileSummary;
+  readonly bank: ProfileBankResult | null;
+  readonly cautions: readonly string[];
+}
+
+/** The result and the per-interval columns behind it (for charts and per-interval files). */
+export interface ProfileStudy {
+  readonly result: ProfileResult;
+  readonly utcMs: Float64Array;
+  readonly before: IntervalFigures;
+  readonly after: IntervalFigures | null;
+  readonly connectedKvar: Float64Array | null;
+  readonly label: (i: number) => string;
+  readonly nominalLineToNeutralV: number;
+}
+
+const pad = (x: number) => String(x).padStart(2, '0');
+
+export function resolveLimits(board: Board, spec: ProfileSpec | undefined): ResolvedLimits {
+  const l = spec?.limits;
+  return {
+    unbalancePercent: l?.unbalancePercent ?? PROFILE_DEFAULTS.unbalancePercent,
+    neutralA: l?.neutralA ?? board.neutralRatingA ?? board.lineRatingA,
+    voltageLowPercent: l?.voltageLowPercent ?? PROFILE_DEFAULTS.voltageLowPercent,
+    voltageHighPercent: l?.voltageHighPercent ?? PROFILE_DEFAULTS.voltageHighPercent,
+  };
+}
+
+export function studyProfile(input: ProfileStudyInput, options: ProfileStudyOptions = {}): ProfileStudy {
+  const { board } = input;
+  const n = input.columns.count;
+  const zone = options.timeZone ?? 'UTC';
+  const clock = createZoneClock(zone);
+  const localMs = new Float64Array(n);
+  const monthKey = new Int32Array(n);
+  for (let i = 0; i < n; i++) {
+    localMs[i] = input.utcMs[i]! + clock.offsetAt(input.utcMs[i]!);
+    monthKey[i] = monthKeyOf(localMs[i]!);
+  }
+  const labelLocal = (ms: number) => {
+    const d = new Date(ms);
+    return `${d.getUTCFullYear()}-${pad(d.getUTCMonth() + 1)}-${pad(d.getUTCDate())} ${pad(d.getUTCHours())}:${pad(d.getUTCMinutes())}`;
+  };
+  const label = (i: number) => labelLocal(localMs[i]!);
+  const limits = resolveLimits(board, input.profile);
+  const ctx: SummaryContext = {
+    board,
+    utcMs: input.utcMs,
+    localMs,
+    monthKey,
+    intervalMs: input.intervalMs,
+    limits,
+    tariff: input.profile?.tariff,
+    label,
+    labelUtc: (u) => labelLocal(u + clock.offsetAt(u)),
+  };
+  let before = input.before;
+  let path = input.beforePath ?? 'nodal';
+  if (!before) {
+    before = allocateFigures(n, board.phases.length);
+    const net = compileBatchNetwork(board, input.drivers);
+    path = solveBatch(net, input.columns, before, { ...options.solve, onProgress: (d) => options.onProgress?.('solve', d, n) }).path;
+  }
+  const beforeSummary = summariseFigures(before, ctx);
+
+  let bank: ProfileBankResult | null = null;
+  let after: IntervalFigures | null = null;
+  let connectedKvar: Float64Array | null = null;
+  if (options.bank) {
+    const b = input.profile?.bank;
+    const settings = {
+      targetPf: options.targetPf ?? b?.targetPf ?? PROFILE_DEFAULTS.targetPf,
+      coverShare: b?.coverShare ?? PROFILE_DEFAULTS.coverShare,
+      responseShare: b?.responseShare ?? PROFILE_DEFAULTS.responseShare,
+      delaySeconds: b?.delaySeconds ?? PROFILE_DEFAULTS.delaySeconds,
+      reconnectSeconds: b?.reconnectSeconds ?? PROFILE_DEFAULTS.reconnectSeconds,
+    };
+    let steps: readonly SwitchedStep[];
+    let needKvar: Record<string, number> | null = null;
+    if (b?.steps) steps = b.steps.map((s) => ({ kvar: s.kvar, channel: s.phase ?? 'ABC' }));
+    else {
+      const sizing = sizeBankSteps(board, before, {
+        targetPf: settings.targetPf,
+        coverShare: settings.coverShare,
+        stepCount: b?.stepCount ?? PROFILE_DEFAULTS.stepCount,
+        perPhase: b?.perPhase ?? false,
+      });
+      steps = sizing.steps;
+      needKvar = { ...sizing.needKvar };
+    }
+    if (steps.length) {
+      const run = simulateBank({ board, drivers: input.drivers, columns: input.columns, utcMs: input.utcMs, intervalMs: input.intervalMs, steps, settings, ...(options.solve ? { solve: options.solve } : {}) });
+      after = run.figures;
+      connectedKvar = run.connectedKvar;
+      const years = (n * input.intervalMs) / (365.25 * 86_400_000);
+      const stepRuns = steps.map((s, k) => ({
+        step: k + 1,
+        channel: s.channel,
+        kvar: s.kvar,
+        closings: run.closings[k]!,
+        openings: run.openings[k]!,
+        closingsPerYear: years > 0 ? run.closings[k]! / years : 0,
+      }));
+      const busiest = Math.max(...stepRuns.map((s) => s.closingsPerYear));
+      const rise = new Float64Array(n);
+      for (let i = 0; i < n; i++)
+        for (let k = 0; k < board.phases.length; k++) rise[i] = Math.max(rise[i]!, run.figures.phaseV[k]![i]! - before.phaseV[k]![i]!);
+      const worstRise = maximumOf(rise);
+      bank = {
+        sizedFromProfile: !b?.steps,
+        needKvar,
+        steps: stepRuns,
+        totalKvar: steps.reduce((s, x) => s + x.kvar, 0),
+        settings,
+        operationsPerYearLimit: PROFILE_DEFAULTS.operationsPerYearLimit,
+        contactorLifeOperations: PROFILE_DEFAULTS.contactorLifeOperations,
+        yearsToContactorLife: busiest > 0 ? PROFILE_DEFAULTS.contactorLifeOperations / busiest : null,
+        voltageRisePercent: (100 * worstRise.value) / board.nominalLineToNeutralV,
+        voltageRiseAt: label(worstRise.index),
+        after: summariseFigures(run.figures, ctx),
+      };
+    }
+  }
+  const result: ProfileResult = {
+    board: board.name,
+    path,
+    timeZone: zone,
+    intervals: { count: n, intervalSeconds: input.intervalMs / 1000, first: label(0), last: label(n - 1) },
+    sequence: input.sequence ?? null,
+    undriven: input.undriven ?? null,
+    limits,
+    before: beforeSummary,
+    bank,
+    cautions: PROFILE_CAUTIONS,
+  };
+  return { result, utcMs: input.utcMs, before, after, connectedKvar, label, nominalLineToNeutralV: board.nominalLineToNeutralV };
+}

@@ -1,0 +1,170 @@
+/**
+ * Per-interval figures → the summary people read: peaks and percentiles with
+ * when they happen, hours beyond thresholds, energy, calendar months.
+ */
+import type { Board } from '../board/boardModel.js';
+import type { IntervalFigures } from './solveBatch.js';
+import { countWhere, maximumOf, minimumOf, percentilesOf, topIndices } from './intervalStatistics.js';
+import { billMonths, type MonthReading } from './monthlyBilling.js';
+import type { TariffSpec } from './profileSpec.js';
+
+export interface ConductorSummary {
+  /** A, B, C or N. */
+  readonly conductor: string;
+  readonly maxA: number;
+  readonly maxAt: string;
+  readonly p95A: number;
+  readonly p95At: string;
+  readonly p99A: number;
+  readonly p99At: string;
+  readonly ratingA: number | null;
+  /** Hours above the rating, or above the neutral threshold for N; null without one. */
+  readonly hoursAboveLimit: number | null;
+}
+
+export interface VoltageSummary {
+  readonly phase: string;
+  readonly minPercent: number;
+  readonly minAt: string;
+  readonly maxPercent: number;
+  readonly maxAt: string;
+}
+
+export interface WorstInterval {
+  readonly at: string;
+  readonly neutralA: number;
+  readonly maxLineA: number;
+  readonly unbalancePercent: number;
+}
+
+export interface ResolvedLimits {
+  readonly unbalancePercent: number;
+  readonly neutralA: number | null;
+  readonly voltageLowPercent: number;
+  readonly voltageHighPercent: number;
+}
+
+export interface ProfileSummary {
+  readonly hours: number;
+  readonly conductors: readonly ConductorSummary[];
+  readonly voltages: readonly VoltageSummary[];
+  readonly hoursVoltageLow: number;
+  readonly hoursVoltageHigh: number;
+  readonly unbalance: { readonly maxPercent: number; readonly maxAt: string; readonly p95Percent: number; readonly hoursAbove: number } | null;
+  readonly energy: {
+    readonly phases: readonly { readonly phase: string; readonly kWh: number; readonly kvarh: number }[];
+    readonly kWhImport: number;
+    readonly kWhExport: number;
+    readonly kvarhLagging: number;
+    readonly kvarhLeading: number;
+    readonly billingPf: number;
+  };
+  /** Hours in which the board imports power at a leading power factor. */
+  readonly leadingHours: number;
+  readonly months: readonly (MonthReading & { readonly peakAt: string })[];
+  readonly worstByNeutral: readonly WorstInterval[];
+  readonly worstByLine: readonly WorstInterval[];
+}
+
+export interface SummaryContext {
+  readonly board: Board;
+  readonly utcMs: Float64Array;
+  readonly localMs: Float64Array;
+  readonly monthKey: Int32Array;
+  readonly intervalMs: number;
+  readonly limits: ResolvedLimits;
+  readonly tariff: TariffSpec | undefined;
+  /** Wall-clock label of interval i. */
+  readonly label: (i: number) => string;
+  readonly labelUtc: (utcMs: number) => string;
+}
+
+export function summariseFigures(f: IntervalFigures, ctx: SummaryContext): ProfileSummary {
+  const { board, limits } = ctx;
+  const n = f.count;
+  const h = ctx.intervalMs / 3_600_000;
+  const conductor = (name: string, x: Float64Array, rating: number | null): ConductorSummary => {
+    const max = maximumOf(x);
+    const [p95, p99] = percentilesOf(x, [0.95, 0.99]);
+    return {
+      conductor: name,
+      maxA: max.value,
+      maxAt: ctx.label(max.index),
+      p95A: p95!.value,
+      p95At: ctx.label(p95!.index),
+      p99A: p99!.value,
+      p99At: ctx.label(p99!.index),
+      ratingA: rating,
+      hoursAboveLimit: rating === null ? null : countWhere(n, (i) => x[i]! > rating) * h,
+    };
+  };
+  const conductors = board.phases.map((p, k) => conductor(p, f.lineA[k]!, board.lineRatingA));
+  if (board.hasNeutral) conductors.push(conductor('N', f.neutralA, limits.neutralA));
+  const vPct = 100 / board.nominalLineToNeutralV;
+  const voltages = board.phases.map((p, k) => {
+    const lo = minimumOf(f.phaseV[k]!);
+    const hi = maximumOf(f.phaseV[k]!);
+    return { phase: p, minPercent: lo.value * vPct, minAt: ctx.label(lo.index), maxPercent: hi.value * vPct, maxAt: ctx.label(hi.index) };
+  });
+  let low = 0;
+  let high = 0;
+  for (let i = 0; i < n; i++) {
+    let lo = Number.POSITIVE_INFINITY;
+    let hi = 0;
+    for (const col of f.phaseV) {
+      if (col[i]! < lo) lo = col[i]!;
+      if (col[i]! > hi) hi = col[i]!;
+    }
+    if (lo * vPct < limits.voltageLowPercent) low++;
+    if (hi * vPct > limits.voltageHighPercent) high++;
+  }
+  const totalW = new Float64Array(n);
+  const totalVar = new Float64Array(n);
+  for (let k = 0; k < board.phases.length; k++)
+    for (let i = 0; i < n; i++) {
+      totalW[i] = totalW[i]! + f.phaseW[k]![i]!;
+      totalVar[i] = totalVar[i]! + f.phaseVar[k]![i]!;
+    }
+  const months = billMonths({ count: n, utcMs: ctx.utcMs, monthKey: ctx.monthKey, localMs: ctx.localMs, intervalMs: ctx.intervalMs, totalW, totalVar }, ctx.tariff);
+  const sumOf = (pick: (m: MonthReading) => number) => months.reduce((s, m) => s + pick(m), 0);
+  const kWhImport = sumOf((m) => m.kWhImport);
+  const kvarhLagging = sumOf((m) => m.kvarhLagging);
+  const sumCol = (x: Float64Array) => x.reduce((s, v) => s + v, 0);
+  const worst = (i: number): WorstInterval => ({
+    at: ctx.label(i),
+    neutralA: f.neutralA[i]!,
+    maxLineA: Math.max(...f.lineA.map((col) => col[i]!)),
+    unbalancePercent: f.unbalancePercent[i]!,
+  });
+  const maxLine = new Float64Array(n);
+  for (let i = 0; i < n; i++) for (const col of f.lineA) if (col[i]! > maxLine[i]!) maxLine[i] = col[i]!;
+  const threePhase = board.phases.length === 3;
+  const vuMax = maximumOf(f.unbalancePercent);
+  return {
+    hours: n * h,
+    conductors,
+    voltages,
+    hoursVoltageLow: low * h,
+    hoursVoltageHigh: high * h,
+    unbalance: threePhase
+      ? {
+          maxPercent: vuMax.value,
+          maxAt: ctx.label(vuMax.index),
+          p95Percent: percentilesOf(f.unbalancePercent, [0.95])[0]!.value,
+          hoursAbove: countWhere(n, (i) => f.unbalancePercent[i]! > limits.unbalancePercent) * h,
+        }
+      : null,
+    energy: {
+      phases: board.phases.map((p, k) => ({ phase: p, kWh: (sumCol(f.phaseW[k]!) * h) / 1000, kvarh: (sumCol(f.phaseVar[k]!) * h) / 1000 })),
+      kWhImport,
+      kWhExport: sumOf((m) => m.kWhExport),
+      kvarhLagging,
+      kvarhLeading: sumOf((m) => m.kvarhLeading),
+      billingPf: kWhImport > 0 ? kWhImport / Math.hypot(kWhImport, kvarhLagging) : 1,
+    },
+    leadingHours: countWhere(n, (i) => totalW[i]! > 0 && totalVar[i]! < 0) * h,
+    months: months.map((m) => ({ ...m, peakAt: ctx.labelUtc(m.peakAtUtcMs) })),
+    worstByNeutral: board.hasNeutral ? topIndices(f.neutralA, 5).map(worst) : [],
+    worstByLine: topIndices(maxLine, 5).map(worst),
+  };
+}

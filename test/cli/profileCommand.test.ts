@@ -1,0 +1,92 @@
+/**
+ * `trivar profile` as a user runs it: the example board with a few days of
+ * generated data, errors with row and column, outputs that never overwrite inputs.
+ */
+import { execFileSync } from 'node:child_process';
+import { mkdtempSync, readFileSync, writeFileSync, readdirSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { beforeAll, describe, expect, it } from 'vitest';
+import { ROOT, runTrivar } from './runTrivar.js';
+
+const BOARD = 'examples/quay-street-flats.yaml';
+let dir = '';
+let data = '';
+
+beforeAll(() => {
+  dir = mkdtempSync(join(tmpdir(), 'trivar-profile-'));
+  data = join(dir, 'quay.csv');
+  // 62 days from 1 January: a month boundary, and over 4 MB so two worker threads read it.
+  execFileSync(process.execPath, [`${ROOT}scripts/generate-profile-example.mjs`, data, '--days', '62'], { cwd: ROOT });
+});
+
+describe('trivar profile', () => {
+  it('runs the example and reports the data problems it found', () => {
+    const r = runTrivar(['profile', BOARD, '--data', data, '--time-zone', 'Europe/Dublin']);
+    expect(r.stderr).toBe('');
+    expect(r.code).toBe(0);
+    expect(r.stdout).toMatch(/3 gaps, \d+ intervals \([\d.]+ h\) missing: left out of every figure/);
+    expect(r.stdout).toMatch(/2 repeated times: the first reading kept/);
+    expect(r.stdout).toMatch(/closed-form \(Millman\) path/);
+    expect(r.stdout).toMatch(/^ {2}2025-01 /m);
+    expect(r.stdout).toMatch(/^ {2}2025-02 /m);
+  });
+
+  it('two reading threads give exactly the result of one', () => {
+    const one = runTrivar(['profile', BOARD, '--data', data, '--threads', '1', '--json']);
+    const two = runTrivar(['profile', BOARD, '--data', data, '--threads', '2', '--json']);
+    expect(two.code).toBe(0);
+    expect(two.stdout).toBe(one.stdout);
+    expect(JSON.parse(one.stdout).sequence.rowsRead).toBe(62 * 1440 - (47 + 180 + 12) + 2);
+  });
+
+  it('JSON: the bank raises the billing power factor and reports its operations', () => {
+    const r = runTrivar(['profile', BOARD, '--data', data, '--bank', '--json']);
+    expect(r.code).toBe(0);
+    const result = JSON.parse(r.stdout);
+    expect(result.intervals.intervalSeconds).toBe(60);
+    expect(result.bank.steps.length).toBe(4);
+    expect(result.bank.after.energy.billingPf).toBeGreaterThan(result.before.energy.billingPf);
+    expect(result.bank.after.energy.billingPf).toBeGreaterThan(0.95);
+    expect(result.bank.steps.every((s: { closings: number }) => s.closings > 0)).toBe(true);
+    // Energy drawn by the loads does not change with the bank (only losses do, by well under 1 %).
+    expect(Math.abs(result.bank.after.energy.kWhImport / result.before.energy.kWhImport - 1)).toBeLessThan(0.01);
+  });
+
+  it('writes the summary, per-interval CSV and three SVG charts', () => {
+    const out = join(dir, 'out');
+    const r = runTrivar(['profile', BOARD, '--data', data, '--bank', '--summary-csv', join(dir, 'summary.csv'), '--intervals-csv', join(dir, 'intervals.csv'), '--charts', out]);
+    expect(r.code).toBe(0);
+    expect(readdirSync(out).sort()).toEqual(['currents.svg', 'load-duration.svg', 'power-factor.svg']);
+    expect(readFileSync(join(out, 'currents.svg'), 'utf8')).toMatch(/^<svg [^>]*>[\s\S]*<\/svg>\n$/);
+    const summary = readFileSync(join(dir, 'summary.csv'), 'utf8').split('\n');
+    expect(summary[0]).toBe('figure,where,before,after,unit');
+    expect(summary.some((l) => l.startsWith('billing power factor,2025-01,'))).toBe(true);
+    const intervals = readFileSync(join(dir, 'intervals.csv'), 'utf8').split('\n');
+    expect(intervals[0]).toMatch(/^time,line A A,line B A,line C A,neutral A,/);
+    expect(intervals[0]).toMatch(/bank kvar/);
+  });
+
+  it('names a bad cell by row and column and exits 3', () => {
+    const bad = join(dir, 'bad.csv');
+    writeFileSync(bad, 'time,flats A [kW]\n2025-01-01 00:00,3.2\n2025-01-01 00:01,x\n2025-01-01 00:02,3.1\n');
+    const r = runTrivar(['profile', BOARD, '--data', bad]);
+    expect(r.code).toBe(3);
+    expect(r.stderr).toMatch(/row 3, column 2 \("flats A \[kW\]"\): expected a number/);
+    expect(r.stderr).not.toMatch(/at .*\.js:\d+/);
+  });
+
+  it('refuses to write over an input, and to run without data', () => {
+    expect(runTrivar(['profile', BOARD, '--data', data, '--summary-csv', data]).code).toBe(2);
+    expect(readFileSync(data, 'utf8').startsWith('time,')).toBe(true);
+    const r = runTrivar(['profile', BOARD]);
+    expect(r.code).toBe(2);
+    expect(r.stderr).toMatch(/--data/);
+  });
+
+  it('rejects an unknown time zone by name', () => {
+    const r = runTrivar(['profile', BOARD, '--data', data, '--time-zone', 'Mars/Olympus']);
+    expect(r.code).toBe(2);
+    expect(r.stderr).toMatch(/Mars\/Olympus/);
+  });
+});

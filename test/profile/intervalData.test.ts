@@ -1,0 +1,175 @@
+/**
+ * Interval data: header plan, cell errors by row and column, time zones and
+ * daylight-saving changes, duplicates and gaps (reported, filled only on request).
+ * DST dates for Europe/Dublin 2025 (last Sunday of March / October, 01:00 UTC)
+ * are from the EU summer-time rule (Directive 2000/84/EC; from memory).
+ */
+import { describe, expect, it } from 'vitest';
+import {
+  checkIntervalSequence,
+  createRowReader,
+  driverColumns,
+  InputError,
+  normaliseBoard,
+  parseBoard,
+  planColumns,
+  planDrivers,
+  type InputIssue,
+} from '@trivar/core';
+
+const board = normaliseBoard(
+  parseBoard({
+    supply: { system: 'three-phase-4wire', voltage: { lineToLine: 400 }, frequencyHz: 50 },
+    loads: [
+      { name: 'kiln', connection: 'A-N', kW: 3, pf: 0.9 },
+      { name: 'lathe', connection: 'ABC-delta', kW: 6, pf: 0.8 },
+      { name: 'lamp', connection: 'B-N', kW: 1, pf: 1 },
+    ],
+  }),
+);
+
+function issuesOf(run: () => unknown): readonly InputIssue[] {
+  try {
+    run();
+  } catch (e) {
+    if (e instanceof InputError) return e.issues;
+    throw e;
+  }
+  throw new Error('expected an InputError');
+}
+
+function read(header: string[], rows: string[][], timeZone = 'UTC') {
+  const plan = planColumns(board, header);
+  const reader = createRowReader(plan, { timeZone });
+  rows.forEach((r, k) => reader.push(r, k + 2));
+  return { plan, raw: reader.finish() };
+}
+
+describe('interval-data header', () => {
+  it.each([
+    [['time', 'kiln kW'], 'bad_header', 'header, column 2 ("kiln kW")'],
+    [['time', 'kiln [MW]'], 'bad_header', 'header, column 2 ("kiln [MW]")'],
+    [['time', 'oven [kW]'], 'unknown_target', 'header, column 2 ("oven [kW]")'],
+    [['time', 'kiln [kW]', 'kiln [kW]'], 'duplicate_column', 'header, column 3 ("kiln [kW]")'],
+    [['time', 'kiln [kvar]'], 'bad_quantities', 'header ("kiln")'],
+    [['time', 'lathe [A]', 'lathe [pf]'], 'bad_quantities', 'header ("lathe [A]")'],
+  ])('%j → %s at %s', (header, code, path) => {
+    const issues = issuesOf(() => planColumns(board, header));
+    expect(issues.map((i) => [i.code, i.path])).toContainEqual([code, path]);
+  });
+
+  it('names loads no column drives, and metered phases become loads of their own', () => {
+    const plan = planColumns(board, ['time', 'kiln [x]', 'phase C [kW]', 'phase C [kvar]']);
+    expect(plan.undriven).toEqual(['lathe', 'lamp']);
+    expect(plan.board.loads.map((l) => l.name)).toEqual(['kiln', 'lathe', 'lamp', 'metered phase C']);
+  });
+});
+
+describe('interval-data cells', () => {
+  it('reports each bad cell with its row and column, all in one pass', () => {
+    const issues = issuesOf(() =>
+      read(
+        ['time', 'kiln [kW]', 'kiln [pf]'],
+        [
+          ['2025-05-01 00:00', '1.2', '0.9'],
+          ['2025-05-01 00:01', 'abc', '0.9'],
+          ['2025-05-01 00:02', '1.0', '1.3'],
+          ['01/05/2025 00:03', '1.0', '0.9'],
+          ['2025-05-01 00:04', '1.0'],
+          ['2025-05-01 00:05', '', '0.9'],
+        ],
+      ),
+    );
+    expect(issues.map((i) => [i.code, i.path])).toEqual([
+      ['bad_value', 'row 3, column 2 ("kiln [kW]")'],
+      ['bad_value', 'row 4, column 3 ("kiln [pf]")'],
+      ['bad_time', 'row 5, column 1 ("time")'],
+      ['bad_row', 'row 6'],
+      ['bad_value', 'row 7, column 2 ("kiln [kW]")'],
+    ]);
+    expect(issues[1]!.message).toMatch(/0 < \|pf\| <= 1/);
+    expect(issues[4]!.message).toMatch(/empty cell is not read as zero/);
+  });
+
+  it('reads kW + pf with a negative pf as leading, and A + pf at the nominal phase voltage', () => {
+    const { plan, raw } = read(['time', 'kiln [kW]', 'kiln [pf]', 'lamp [A]', 'lamp [pf]'], [['2025-05-01T00:00Z', '3', '-0.8', '10', '0.6']]);
+    const cols = driverColumns(plan, raw.values, raw.count);
+    expect(cols.re[0]![0]).toBeCloseTo(3000, 9);
+    expect(cols.im[0]![0]).toBeCloseTo(-2250, 9); // Q = −P·tan(acos 0.8)
+    const vln = 400 / Math.sqrt(3);
+    expect(cols.re[1]![0]).toBeCloseTo(10 * vln * 0.6, 9);
+    expect(cols.im[1]![0]).toBeCloseTo(10 * vln * 0.8, 9);
+    expect(planDrivers(plan).map((d) => d.name)).toEqual(['kiln', 'lamp']);
+  });
+});
+
+describe('time zones and daylight saving', () => {
+  const header = ['time', 'kiln [x]'];
+  const at = (t: string) => [t, '1'];
+
+  it('a wall-clock time skipped when clocks go forward is an error at its row', () => {
+    const issues = issuesOf(() => read(header, [at('2025-03-30 00:59'), at('2025-03-30 01:30'), at('2025-03-30 02:00')], 'Europe/Dublin'));
+    expect(issues.map((i) => [i.code, i.path])).toEqual([['nonexistent_time', 'row 3, column 1 ("time")']]);
+  });
+
+  it('across the spring change, local 00:59 → 02:00 is one minute', () => {
+    const { raw } = read(header, [at('2025-03-30 00:58'), at('2025-03-30 00:59'), at('2025-03-30 02:00'), at('2025-03-30 02:01')], 'Europe/Dublin');
+    expect([...raw.utcMs].map((u) => new Date(u).toISOString().slice(11, 16))).toEqual(['00:58', '00:59', '01:00', '01:01']);
+    expect(checkIntervalSequence(raw).report.gaps.count).toBe(0);
+  });
+
+  it('the hour written twice when clocks go back is placed by row order: no duplicates, no gaps', () => {
+    const rows = [at('2025-10-26 00:30'), at('2025-10-26 01:00'), at('2025-10-26 01:30'), at('2025-10-26 01:00'), at('2025-10-26 01:30'), at('2025-10-26 02:00')];
+    const { raw } = read(header, rows, 'Europe/Dublin');
+    // Summer time (UTC+1) until 01:00 UTC, then winter time (UTC+0).
+    expect([...raw.utcMs].map((u) => new Date(u).toISOString().slice(11, 16))).toEqual(['23:30', '00:00', '00:30', '01:00', '01:30', '02:00']);
+    expect(raw.ambiguousTimes).toBe(4);
+    const table = checkIntervalSequence(raw);
+    expect(table.report.duplicates.count).toBe(0);
+    expect(table.report.gaps.count).toBe(0);
+    expect(table.intervalMs).toBe(1_800_000);
+  });
+
+  it('an explicit offset wins over the zone, and Z means UTC', () => {
+    const { raw } = read(header, [at('2025-07-01T12:00:00+02:00'), at('2025-07-01T10:01:00Z')], 'America/Chicago');
+    expect([...raw.utcMs]).toEqual([Date.UTC(2025, 6, 1, 10, 0), Date.UTC(2025, 6, 1, 10, 1)]);
+  });
+});
+
+describe('gaps and duplicates', () => {
+  const header = ['time', 'kiln [kW]'];
+  const rows = [
+    ['2025-05-01 00:00', '1'],
+    ['2025-05-01 00:15', '2'],
+    ['2025-05-01 00:15', '9'],
+    ['2025-05-01 01:00', '5'], // 00:30 and 00:45 missing
+    ['2025-05-01 01:15', '6'],
+  ];
+
+  it('are reported and, by default, the gap is left out and the first duplicate kept', () => {
+    const { raw } = read(header, rows);
+    const t = checkIntervalSequence(raw);
+    expect(t.intervalMs).toBe(900_000);
+    expect(t.count).toBe(4);
+    expect([...t.values[0]!]).toEqual([1, 2, 5, 6]);
+    expect(t.report.duplicates).toEqual({ count: 1, rows: [4] });
+    expect(t.report.gaps).toMatchObject({ count: 1, missingIntervals: 2, missingHours: 0.5 });
+    expect(t.report.filledIntervals).toBe(0);
+  });
+
+  it('hold repeats the last reading; linear interpolates; both flag what they made', () => {
+    const { raw } = read(header, rows);
+    const hold = checkIntervalSequence(raw, 'hold');
+    expect([...hold.values[0]!]).toEqual([1, 2, 2, 2, 5, 6]);
+    expect([...hold.filled]).toEqual([0, 0, 1, 1, 0, 0]);
+    const linear = checkIntervalSequence(raw, 'linear');
+    expect([...linear.values[0]!]).toEqual([1, 2, 3, 4, 5, 6]);
+    expect(linear.report).toMatchObject({ fill: 'linear', filledIntervals: 2 });
+  });
+
+  it('rows out of time order are an error naming the row', () => {
+    const { raw } = read(header, [rows[0]!, rows[3]!, rows[1]!]);
+    const issues = issuesOf(() => checkIntervalSequence(raw));
+    expect(issues.map((i) => [i.code, i.path])).toEqual([['out_of_order', 'row 4, column 1']]);
+  });
+});
