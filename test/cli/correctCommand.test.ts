@@ -1,4 +1,4 @@
-import { readFileSync } from 'node:fs';
+import { readdirSync, readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import { correctBoard, normaliseBoard, parseBoardText } from '@trivar/core';
 import { ROOT, runTrivar } from './runTrivar.js';
@@ -59,6 +59,17 @@ describe('trivar correct (built binary)', () => {
     expect(r.stdout).toContain('Controller');
     for (const line of r.stdout.split('\n')) expect(line.length).toBeLessThanOrEqual(100);
   });
+
+  it.each(readdirSync(`${ROOT}examples`).filter((f) => f.endsWith('.yaml')).map((f) => f.slice(0, -5)))(
+    'examples/%s.yaml: fits 100 columns, and a bank that is built comes with its controller settings',
+    (name) => {
+      const text = runTrivar(['correct', `examples/${name}.yaml`]);
+      expect(text.stderr).toBe('');
+      for (const line of text.stdout.split('\n')) expect(line.length, line).toBeLessThanOrEqual(100);
+      if (/Bank as built from units\n {2}delivered [1-9]/.test(text.stdout)) expect(text.stdout).toMatch(/C\/k of the smallest step/);
+      expect(text.stdout).not.toMatch(/saves -|released -/);
+    },
+  );
 
   it('the North-American example compares the arrangements and recommends an equal-step delta bank of 480 V units', () => {
     const r = runTrivar(['correct', 'examples/cedar-falls-print-shop.yaml', '--json']);

@@ -79,9 +79,16 @@ describe('trivar profile', () => {
   it('refuses to write over an input, and to run without data', () => {
     expect(runTrivar(['profile', BOARD, '--data', data, '--summary-csv', data]).code).toBe(2);
     expect(readFileSync(data, 'utf8').startsWith('time,')).toBe(true);
-    const r = runTrivar(['profile', BOARD]);
+    const r = runTrivar(['profile', 'examples/corner-bakery.yaml']);
     expect(r.code).toBe(2);
     expect(r.stderr).toMatch(/--data/);
+  });
+
+  it('without data, runs the board file scenarios', () => {
+    const r = runTrivar(['profile', BOARD]);
+    expect(r.code).toBe(0);
+    expect(r.stdout).toMatch(/scenarios \(8760 h\)/);
+    expect(r.stdout).toMatch(/winter evening: line C carries [\d.]+ A, above its 250 A rating/);
   });
 
   it('rejects an unknown time zone by name', () => {

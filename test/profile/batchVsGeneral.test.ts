@@ -12,7 +12,8 @@ import { allocateFigures, recordInterval } from '../../packages/core/src/profile
 import { expectClose } from '../support/tolerance.js';
 import { compileBatchNetwork, edgePowersAt, type DriverSpec } from '../../packages/core/src/profile/batchNetwork.js';
 import { closedFormBlocker, createClosedFormKernel } from '../../packages/core/src/profile/closedFormKernel.js';
-import { createNodalKernel } from '../../packages/core/src/profile/nodalKernel.js';
+import { createCompiledKernel } from '../../packages/core/src/profile/compiledKernel.js';
+import { isLinearClosedForm, solveLinearClosedForm } from '../../packages/core/src/profile/linearClosedForm.js';
 import type { BatchKernel } from '../../packages/core/src/profile/batchKernel.js';
 import { boardSpecArb } from '../property/arbitraries/boardSpec.js';
 import { expectComplexClose } from '../support/tolerance.js';
@@ -126,7 +127,7 @@ describe('batch kernels agree with solveNetwork to 1e-9 relative', () => {
             re: board.loads.map((_, l) => Float64Array.from(intervals, (row) => row[l]!)),
             im: board.loads.map(() => new Float64Array(intervals.length)),
           };
-          const kernels = [createNodalKernel(net)];
+          const kernels = [createCompiledKernel(net)];
           if (!closedFormBlocker(net)) {
             kernels.push(createClosedFormKernel(net));
             closedFormBoards++;
@@ -155,12 +156,58 @@ describe('batch kernels agree with solveNetwork to 1e-9 relative', () => {
     };
     const board = normaliseBoard(parseBoard(spec));
     const net = compileBatchNetwork(board, perLoadDrivers(board));
-    const kernel = createNodalKernel(net);
+    const kernel = createCompiledKernel(net);
     const powers = new Float64Array(net.edges.length * 6);
     edgePowersAt(net, { count: 1, re: [Float64Array.of(0), Float64Array.of(1)], im: [Float64Array.of(0), Float64Array.of(0)] }, 0, powers);
     kernel.solve(powers, 0);
     const without = normaliseBoard(parseBoard({ ...spec, loads: [spec.loads[1]] }));
     compareInterval(kernel, without, [1], 0);
+  });
+
+  it('the fused constant-impedance pass writes the per-interval closed-form figures (1e-12)', () => {
+    let fused = 0;
+    fc.assert(
+      fc.property(
+        boardSpecArb({ maxLoads: 6, systems: ['three-phase-4wire'], models: 'constant-impedance' }),
+        fc.array(fc.array(fc.double({ min: 0, max: 1.2, noNaN: true }), { minLength: 6, maxLength: 6 }), { minLength: 3, maxLength: 3 }),
+        (spec, intervals) => {
+          const board = normaliseBoard(parseBoard(spec));
+          const net = compileBatchNetwork(board, perLoadDrivers(board));
+          if (!isLinearClosedForm(net)) return;
+          fused++;
+          const columns = {
+            count: intervals.length,
+            re: board.loads.map((_, l) => Float64Array.from(intervals, (row) => row[l]!)),
+            im: board.loads.map(() => new Float64Array(intervals.length)),
+          };
+          const fast = allocateFigures(intervals.length, 3);
+          solveLinearClosedForm(net, columns, fast);
+          const slow = allocateFigures(intervals.length, 3);
+          const kernel = createClosedFormKernel(net);
+          const powers = new Float64Array(net.edges.length * 6);
+          intervals.forEach((_, i) => {
+            edgePowersAt(net, columns, i, powers);
+            kernel.solve(powers, i);
+            recordInterval(kernel.state, board.sequence, slow, i);
+          });
+          const pairs: [Float64Array, Float64Array, string][] = [
+            ...[0, 1, 2].flatMap((k): [Float64Array, Float64Array, string][] => [
+              [fast.lineA[k]!, slow.lineA[k]!, `line ${k}`],
+              [fast.phaseV[k]!, slow.phaseV[k]!, `voltage ${k}`],
+              [fast.phaseW[k]!, slow.phaseW[k]!, `W ${k}`],
+              [fast.phaseVar[k]!, slow.phaseVar[k]!, `var ${k}`],
+            ]),
+            [fast.neutralA, slow.neutralA, 'neutral'],
+            [fast.unbalancePercent, slow.unbalancePercent, 'unbalance'],
+          ];
+          for (const [a, b, what] of pairs) {
+            const scale = Math.max(1, ...b.map(Math.abs));
+            b.forEach((v, i) => expectClose(a[i]!, v, { rel: 1e-12, abs: 1e-12 * scale }, `${what} interval ${i}`));
+          }
+        },
+      ),
+    );
+    expect(fused).toBeGreaterThan(0);
   });
 
   it('a P + jQ driver spread over two loads by weight equals those loads rated at the shares', () => {
@@ -175,7 +222,7 @@ describe('batch kernels agree with solveNetwork to 1e-9 relative', () => {
       }),
     );
     const net = compileBatchNetwork(board, [{ name: 'pair', loads: [{ load: 0, coefficient: { re: 0.25, im: 0 } }, { load: 1, coefficient: { re: 0.75, im: 0 } }] }]);
-    const kernel = createNodalKernel(net);
+    const kernel = createCompiledKernel(net);
     const powers = new Float64Array(net.edges.length * 6);
     edgePowersAt(net, { count: 1, re: [Float64Array.of(8000)], im: [Float64Array.of(2000)] }, 0, powers);
     kernel.solve(powers, 0);

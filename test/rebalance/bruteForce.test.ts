@@ -8,10 +8,14 @@
  * - the report's fast-model figures match the test-side figures of the chosen wiring.
  */
 import fc from 'fast-check';
-import { describe, expect, it } from 'vitest';
+import { afterAll, describe, expect, it } from 'vitest';
 import { InputError, normaliseBoard, parseBoard, rebalanceBoard, type BoardSpec, type ConnectionSpec, type RebalanceReport } from '@trivar/core';
 import { boardFigures, enumerateAssignments, movesBetween, smallBoardArb, type Figures } from './support/rebalanceBoards.js';
 import { expectClose } from '../support/tolerance.js';
+import { FigureLog } from '../support/figureLog.js';
+
+const figures = new FigureLog(new URL('./.brute-force-gaps.json', import.meta.url));
+afterAll(() => figures.write());
 
 interface Study {
   aim: { largestLine?: number; neutral?: number; currentUnbalance?: number };
@@ -53,7 +57,9 @@ const studyArb = (spec: BoardSpec): fc.Arbitrary<Study> => {
 function scoreOf(study: Study, figures: readonly (Figures & { positive: number })[]): number {
   const per = figures.map((f) => {
     const w = study.aim;
-    return (w.largestLine ?? 0) * Math.max(...f.lines) + (w.neutral ?? 0) * f.neutral + ((w.currentUnbalance ?? 0) * 100 * f.negative) / f.positive;
+    // With every circuit off (a condition may switch them all off) there is no unbalance to weigh.
+    const unbalance = w.currentUnbalance && f.positive > 0 ? (w.currentUnbalance * 100 * f.negative) / f.positive : 0;
+    return (w.largestLine ?? 0) * Math.max(...f.lines) + (w.neutral ?? 0) * f.neutral + unbalance;
   });
   if (study.combine === 'worst') return Math.max(...per);
   const total = study.conditions.reduce((s, c) => s + c.weight, 0);
@@ -114,6 +120,7 @@ describe('rebalance: exhaustive enumeration on small boards', () => {
         const brute = bruteForce(spec, study);
         const report = run(spec, study, 'exact');
         expect(report.proven).toBe(true);
+        figures.note('exact vs brute force, |difference| / best', Math.abs(report.score.after - brute.score) / Math.max(brute.score, 1e-12));
         expectClose(report.score.after, brute.score, { rel: 1e-9, abs: 1e-9 }, 'best score');
         expect(report.moves.length).toBeLessThanOrEqual(brute.moves);
         // The fast-model figures of the chosen wiring, against the test-side model.
@@ -135,6 +142,8 @@ describe('rebalance: exhaustive enumeration on small boards', () => {
         const brute = bruteForce(spec, study);
         const report = run(spec, study, 'local-search');
         const slack = 1e-9 * Math.max(brute.score, 1);
+        figures.note('local search vs brute force, (score - best) / best', (report.score.after - brute.score) / Math.max(brute.score, 1e-12));
+        figures.note('local search: stated gap, % of its score', report.score.gapPercent ?? 0);
         expect(report.score.after).toBeGreaterThanOrEqual(brute.score - slack);
         expect(report.score.lowerBound).not.toBeNull();
         expect(report.score.lowerBound!).toBeLessThanOrEqual(brute.score + slack);

@@ -203,3 +203,5 @@ export { parseHandFigures } from './handCheck/validateHandFigures.js';
 export type * from './handCheck/handCheckResult.js';
 export { checkHandFigures, addHandCapacitors } from './handCheck/checkHandFigures.js';
 export { textbookWorking } from './handCheck/textbookWorking.js';
+export type { ScenarioReading, ScenarioResult } from './profile/studyScenarios.js';
+export { studyScenarios } from './profile/studyScenarios.js';

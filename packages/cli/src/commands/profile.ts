@@ -12,6 +12,7 @@ import {
   planDrivers,
   readBoardText,
   studyProfile,
+  studyScenarios,
   type GapFill,
   type ProfileStudy,
 } from '@trivar/core';
@@ -20,7 +21,7 @@ import { UsageError } from '../exitCodes.js';
 import { assertNotInput, writeOutputFile } from '../outputFiles.js';
 import { writeResult } from '../writeResult.js';
 import { readCsvHeader, readIntervalRows } from '../read/intervalCsv.js';
-import { renderProfileReport } from '../format/profileReport.js';
+import { renderProfileReport, renderScenarioReport } from '../format/profileReport.js';
 import { intervalCsv, summaryCsv } from '../format/profileCsv.js';
 import { CHART_FILES, writeProfileCharts } from '../format/profileChartFiles.js';
 import { startProgress } from '../progress.js';
@@ -39,24 +40,30 @@ export interface ProfileCommandOptions {
   readonly threads?: number;
 }
 
-export async function runProfile(file: string, options: ProfileCommandOptions, io: CliIo): Promise<ProfileStudy> {
+export async function runProfile(file: string, options: ProfileCommandOptions, io: CliIo): Promise<ProfileStudy | null> {
   const spec = parseBoard(readBoardText(await io.readSource(file)));
   const board = normaliseBoard(spec);
   const zone = options.timeZone ?? 'UTC';
   if (!isKnownTimeZone(zone)) throw new UsageError(`--time-zone: "${zone}" is not a time zone this system knows (expected an IANA name such as Europe/Lisbon or America/Chicago)`);
-  if (!options.data) throw new UsageError('give the interval data with --data <file.csv> (see trivar profile --help for the columns)');
+  if (!options.data) {
+    if (!spec.profile?.scenarios) throw new UsageError('give the interval data with --data <file.csv>, or scenarios under profile.scenarios in the board file (see trivar profile --help)');
+    const result = studyScenarios(board, spec.profile);
+    writeResult(io, result, options.json, renderScenarioReport);
+    return null;
+  }
   const chartFiles = options.charts ? CHART_FILES.map((name) => join(options.charts!, name)) : [];
   assertNotInput([options.summaryCsv, options.intervalsCsv, ...chartFiles].filter((x): x is string => x !== undefined), [file, options.data]);
   const plan = planColumns(board, readCsvHeader(options.data), { ...(spec.profile?.groups ? { groups: spec.profile.groups } : {}), undrivenAtRating: options.unlistedAtRating ?? false });
   const progress = startProgress(io);
-  progress.stage('reading', 1);
-  const threads = options.threads ?? Math.min(2, availableParallelism());
-  const raw = await readIntervalRows(options.data, plan, { timeZone: zone }, threads);
-  const table = checkIntervalSequence(raw, options.fillGaps ?? 'none');
-  const drivers = planDrivers(plan);
-  const columns = driverColumns(plan, table.values, table.count);
   let study: ProfileStudy;
+  // Stop the bar on every way out, or its timer keeps the process alive and the cursor hidden.
   try {
+    progress.stage('reading', 1);
+    const threads = options.threads ?? Math.min(2, availableParallelism());
+    const raw = await readIntervalRows(options.data, plan, { timeZone: zone }, threads);
+    const table = checkIntervalSequence(raw, options.fillGaps ?? 'none');
+    const drivers = planDrivers(plan);
+    const columns = driverColumns(plan, table.values, table.count);
     study = studyProfile(
       {
         board: plan.board,

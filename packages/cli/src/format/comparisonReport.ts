@@ -9,7 +9,7 @@ const NAMES: Record<string, string> = { 'star-bank': 'star bank', 'delta-bank': 
 
 const VERDICT: Record<string, string> = {
   'meets-target': 'meets',
-  'meets-target-at-nominal-capacitance': 'meets at nom. C',
+  'meets-target-at-nominal-capacitance': 'meets at nom C',
   'already-meets-target': 'nothing to do',
   'misses-target-with-available-units': 'misses',
   infeasible: 'not reachable',
@@ -24,7 +24,7 @@ function row(o: ArrangementOutcome): string[] {
   return [
     name,
     VERDICT[o.report.status] ?? o.report.status,
-    built ? fixed(f.deliveredKvar, 1) + (f.reactorKvar > 0 ? ` +L${fixed(f.reactorKvar, 1)}` : '') : '-',
+    built ? fixed(f.deliveredKvar, 1) + (f.reactorKvar > 0 ? `+L${fixed(f.reactorKvar, 1)}` : '') : '-',
     built ? fixed(f.nameplateKvar, 1) : '-',
     built ? String(f.units) : '-',
     built ? String(f.switchedSteps) : '-',
@@ -61,7 +61,7 @@ export function renderComparisonReport(c: CorrectionComparison): string {
       ) +
       '\n' +
       [
-        'delivered: kvar at the solved voltage (+L: reactor kvar); plate: nameplate kvar; PF after: the PF the target is defined on (per-line: the lowest line); neutral: A after; loss: source + feeder after',
+        'delivered: kvar at the solved voltage (+L: reactor kvar); nom C: at nominal capacitance only; plate: nameplate kvar; PF after: the PF the target is defined on (per-line: the lowest line); neutral: A after; loss: source + feeder after',
         ...c.outcomes.filter((o) => o.notApplicable).map((o) => `${NAMES[o.arrangement]}: ${o.notApplicable}`),
       ]
         .map((l) => wrapText(l, '  ', '    '))

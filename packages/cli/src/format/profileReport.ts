@@ -1,5 +1,5 @@
 /** ProfileResult → the text report of `trivar profile`. */
-import type { ProfileResult, ProfileSummary } from '@trivar/core';
+import type { ProfileResult, ProfileSummary, ScenarioResult } from '@trivar/core';
 import { fixed, renderTable, section } from './textTable.js';
 
 const hours = (h: number) => (h === 0 ? '0' : h < 10 ? fixed(h, 2) : fixed(h, 1));
@@ -97,9 +97,9 @@ function bankLines(r: ProfileResult): string {
   const b = r.bank!;
   const set = b.settings;
   const sizing = b.sizedFromProfile
-    ? `sized from the profile: need at the ${fixed(set.coverShare * 100, 0)}th percentile of intervals ${Object.entries(b.needKvar ?? {})
-        .map(([c, v]) => `${c === 'ABC' ? 'three-phase' : `phase ${c}`} ${fixed(v, 1)} kvar`)
-        .join(', ')}`
+    ? `sized from the profile to hold the target in ${fixed(set.coverShare * 100, 0)} % of intervals: ${Object.entries(b.needKvar ?? {})
+        .map(([c, v]) => `${fixed(v, 1)} kvar ${c === 'ABC' ? 'three-phase' : `on phase ${c}`}`)
+        .join(', ')} needed`
     : 'steps as given in profile.bank.steps';
   const lines = [
     `  ${sizing}; ${b.steps.length} steps, ${fixed(b.totalKvar, 1)} kvar in all`,
@@ -143,4 +143,50 @@ export function renderProfileReport(r: ProfileResult, currency: string): string 
   if (r.bank) parts.push(section('Automatic bank over the profile'), bankLines(r));
   parts.push(section('Cautions'), ...r.cautions.map((c) => `  - ${c}`));
   return `${parts.join('\n')}\n`;
+}
+
+/** The report of a board file's scenarios (no interval data). */
+export function renderScenarioReport(r: ScenarioResult): string {
+  const phases = r.scenarios[0]?.lineA.length ?? 0;
+  const names = ['A', 'B', 'C'].slice(0, phases);
+  const hasNeutral = r.scenarios.some((s) => s.neutralA !== null);
+  const table = renderTable(
+    [
+      { header: 'scenario', align: 'left' },
+      { header: 'h/yr' },
+      ...names.map((p) => ({ header: `line ${p}, A` })),
+      ...(hasNeutral ? [{ header: 'neutral A' }] : []),
+      { header: 'lowest V %' },
+      { header: 'highest V %' },
+      { header: 'unbalance %' },
+      { header: 'kW' },
+      { header: 'kvar' },
+      { header: 'PF' },
+    ],
+    r.scenarios.map((s) => [
+      s.name,
+      fixed(s.hours, 0),
+      ...s.lineA.map((a) => fixed(a, 1)),
+      ...(hasNeutral ? [s.neutralA === null ? '-' : fixed(s.neutralA, 1)] : []),
+      fixed(s.lowestVoltagePercent, 1),
+      fixed(s.highestVoltagePercent, 1),
+      s.unbalancePercent === null ? '-' : fixed(s.unbalancePercent, 2),
+      fixed(s.kW, 1),
+      fixed(s.kvar, 1),
+      fixed(s.pf, 3),
+    ]),
+  );
+  const over = r.scenarios.flatMap((s) => [
+    ...s.lineA.flatMap((a, k) => (r.lineRatingA !== null && a > r.lineRatingA ? [`  ${s.name}: line ${names[k]} carries ${fixed(a, 1)} A, above its ${fixed(r.lineRatingA, 0)} A rating`] : [])),
+    ...(s.neutralA !== null && r.neutralRatingA !== null && s.neutralA > r.neutralRatingA ? [`  ${s.name}: the neutral carries ${fixed(s.neutralA, 1)} A, above its ${fixed(r.neutralRatingA, 0)} A rating`] : []),
+  ]);
+  return `${[
+    `${r.board} — scenarios (${fixed(r.hours, 0)} h)`,
+    `  solved on the ${r.path === 'closed-form' ? 'closed-form (Millman) path' : 'nodal path'}`,
+    '',
+    table,
+    '',
+    `  over the year: ${thousands(r.kWhImport)} kWh imported, ${thousands(r.kvarhLagging)} kvarh lagging, billing power factor ${fixed(r.billingPf, 3)}`,
+    ...(over.length ? ['', 'Over a rating', ...over, '  Conductors above their rating overheat in service: check sizing against local wiring rules.'] : []),
+  ].join('\n')}\n`;
 }

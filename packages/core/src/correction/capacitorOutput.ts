@@ -46,3 +46,4 @@ export const capacitanceUF = (susceptanceS: number, frequencyHz: number): number
 
 /** Inductance of a susceptance B < 0 at frequency f, mH. */
 export const inductanceMH = (susceptanceS: number, frequencyHz: number): number => (1 / (2 * Math.PI * frequencyHz * Math.abs(susceptanceS))) * 1e3;
+

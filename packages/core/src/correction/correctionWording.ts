@@ -186,6 +186,7 @@ export const comparisonWording = {
         : status === 'meets-target' || status === 'meets-target-at-nominal-capacitance'
           ? `${name}: ${STATUS_SHORT[status]} at ${tieOnCost ? 'about the least cost and with the lowest losses' : 'the least cost'} (cost ${f.cost.toFixed(1)})`
           : `${name}: no arrangement meets the target; this one comes closest (${STATUS_SHORT[status]})`;
+    if (status === 'already-meets-target') return head;
     const rest = others.map((o) => (o.status === status ? `${o.name} costs ${o.cost.toFixed(1)}` : `${o.name} ${STATUS_SHORT[o.status]}`));
     return rest.length ? `${head}; ${rest.join('; ')}` : head;
   },

@@ -84,7 +84,7 @@ export function checkIntervalSequence(raw: RawIntervals, fill: GapFill = 'none')
   if (backwards.length)
     throw new InputError(
       backwards.map((i) =>
-        inputIssue('out_of_order', `row ${rows[i]}, column 1`, `a time after the row before (row ${rows[i - 1]}); sort the file by time`, new Date(utc[i]!).toISOString()),
+        inputIssue('out_of_order', `row ${rows[i]}, column 1`, `a time after the row before (row ${rows[i - 1]}); sort the file by time (local times that repeat when clocks go back need their time zone)`, new Date(utc[i]!).toISOString()),
       ),
       'the interval data is not in time order',
     );

@@ -44,9 +44,11 @@ function fail(issues: InputIssue[]): never {
   throw new InputError(issues, 'the interval data cannot be read');
 }
 
+/** The quantity of a data header ("oven [kW]" → "kW"). */
+const quantityOf = (header: string) => /\[\s*([A-Za-z]+)\s*\]$/.exec(header)?.[1] ?? '';
+
 /** Range a quantity's value must fall in, and how to say it. */
-function checkValue(header: string, x: number): string | null {
-  const q = /\[\s*([A-Za-z]+)\s*\]$/.exec(header)?.[1];
+function checkValue(q: string, x: number): string | null {
   if (q === 'pf' && !(x !== 0 && Math.abs(x) <= 1)) return 'a power factor with 0 < |pf| <= 1 (negative = leading)';
   if ((q === 'A' || q === 'x') && x < 0) return `a number >= 0 for [${q}]`;
   return null;
@@ -54,6 +56,7 @@ function checkValue(header: string, x: number): string | null {
 
 export function createRowReader(plan: ColumnPlan, options: RowReaderOptions = {}): RowReader {
   const width = plan.dataHeaders.length + 1;
+  const quantities = plan.dataHeaders.map(quantityOf);
   const clock: ZoneClock = createZoneClock(options.timeZone ?? 'UTC');
   let capacity = Math.max(1024, options.expectedRows ?? 0);
   let utcMs = new Float64Array(capacity);
@@ -61,6 +64,8 @@ export function createRowReader(plan: ColumnPlan, options: RowReaderOptions = {}
   let values = plan.dataHeaders.map(() => new Float64Array(capacity));
   let count = 0;
   let ambiguousTimes = 0;
+  /** Offset of the last offset-less time read: the next one almost always has it too. */
+  let lastOffset = 0;
   const issues: InputIssue[] = [];
   const report = (issue: InputIssue) => {
     issues.push(issue);
@@ -93,6 +98,7 @@ export function createRowReader(plan: ColumnPlan, options: RowReaderOptions = {}
       }
       let instant: number;
       if (t.offsetMs !== null) instant = t.wallMs - t.offsetMs;
+      else if (clock.isUnambiguous(t.wallMs - lastOffset, lastOffset)) instant = t.wallMs - lastOffset;
       else {
         const candidates = clock.instantsOf(t.wallMs);
         if (candidates.length === 0) {
@@ -109,12 +115,13 @@ export function createRowReader(plan: ColumnPlan, options: RowReaderOptions = {}
           instant = candidates.find((c) => c > previous) ?? candidates[0]!;
         }
       }
+      lastOffset = t.offsetMs === null ? t.wallMs - instant : lastOffset;
       if (count === capacity) grow();
       let ok = true;
       for (let c = 1; c < width; c++) {
         const text = record[c]!;
         const x = text.trim() === '' ? Number.NaN : Number(text);
-        const bad = Number.isFinite(x) ? checkValue(plan.dataHeaders[c - 1]!, x) : 'a number (an empty cell is not read as zero: leave the row out to make a gap)';
+        const bad = Number.isFinite(x) ? checkValue(quantities[c - 1]!, x) : 'a number (an empty cell is not read as zero: leave the row out to make a gap)';
         if (bad) {
           report(inputIssue('bad_value', cellPath(plan, row, c), bad, text));
           ok = false;

@@ -6,7 +6,8 @@ import type { BatchNetwork, DriverColumns } from './batchNetwork.js';
 import { edgePowersAt } from './batchNetwork.js';
 import { modulus, type BatchKernel, type IntervalState, type KernelOptions } from './batchKernel.js';
 import { closedFormBlocker, createClosedFormKernel } from './closedFormKernel.js';
-import { createNodalKernel } from './nodalKernel.js';
+import { createCompiledKernel } from './compiledKernel.js';
+import { isLinearClosedForm, solveLinearClosedForm } from './linearClosedForm.js';
 
 /** Per-interval figures, each a column of `count` values. */
 export interface IntervalFigures {
@@ -88,7 +89,7 @@ export interface BatchSolveOptions extends KernelOptions {
 /** The kernel a board takes. */
 export function createBatchKernel(net: BatchNetwork, options: BatchSolveOptions = {}): BatchKernel {
   const path = options.path ?? 'auto';
-  if (path === 'nodal' || (path === 'auto' && closedFormBlocker(net))) return createNodalKernel(net, options);
+  if (path === 'nodal' || (path === 'auto' && closedFormBlocker(net))) return createCompiledKernel(net, options);
   return createClosedFormKernel(net, options);
 }
 
@@ -102,6 +103,14 @@ export function solveBatch(
   out: IntervalFigures,
   options: BatchSolveOptions & { readonly from?: number; readonly to?: number; readonly onProgress?: (done: number) => void } = {},
 ): { path: BatchKernel['path'] } {
+  const from0 = options.from ?? 0;
+  const to0 = options.to ?? columns.count;
+  if ((options.path ?? 'auto') !== 'nodal' && isLinearClosedForm(net)) {
+    // Constant-impedance loads only: one fused pass, no load iteration.
+    solveLinearClosedForm(net, columns, out, from0, to0);
+    options.onProgress?.(to0 - from0);
+    return { path: 'closed-form' };
+  }
   const kernel = createBatchKernel(net, options);
   const powers = new Float64Array(net.edges.length * 6);
   const from = options.from ?? 0;

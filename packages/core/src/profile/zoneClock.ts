@@ -27,6 +27,12 @@ export interface ZoneClock {
    * occurs: none in a spring-forward gap, two in an autumn repeat, else one.
    */
   instantsOf(localMs: number): readonly number[];
+  /**
+   * True when `utcMs` has offset `offset` and no offset change lies within a day either
+   * side, so the wall-clock time utcMs + offset occurs once, at utcMs (the fast path for
+   * rows that follow one another).
+   */
+  isUnambiguous(utcMs: number, offset: number): boolean;
 }
 
 /** True when the platform knows the zone name. */
@@ -40,7 +46,7 @@ export function isKnownTimeZone(zone: string): boolean {
 }
 
 export function createZoneClock(zone: string): ZoneClock {
-  if (zone === 'UTC') return { zone, offsetAt: () => 0, instantsOf: (l) => [l] };
+  if (zone === 'UTC') return { zone, offsetAt: () => 0, instantsOf: (l) => [l], isUnambiguous: (_u, o) => o === 0 };
   const format = new Intl.DateTimeFormat('en-US', {
     timeZone: zone,
     hourCycle: 'h23',
@@ -79,13 +85,33 @@ export function createZoneClock(zone: string): ZoneClock {
     days.set(day, d);
     return d;
   };
+  // Rows come in time order: remember the last day looked up.
+  let lastDay = Number.NaN;
+  let last: DayOffsets = { start: 0, end: 0, change: 0 };
   const offsetAt = (utcMs: number): number => {
-    const d = dayOffsets(Math.floor(utcMs / DAY_MS));
-    return utcMs < d.change ? d.start : d.end;
+    const day = Math.floor(utcMs / DAY_MS);
+    if (day !== lastDay) {
+      last = dayOffsets(day);
+      lastDay = day;
+    }
+    return utcMs < last.change ? last.start : last.end;
+  };
+  let steadyDay = Number.NaN;
+  let steadyOffset = 0;
+  const steady = (day: number, offset: number) => {
+    const d = dayOffsets(day);
+    return d.start === offset && d.end === offset;
   };
   return {
     zone,
     offsetAt,
+    isUnambiguous(utcMs, offset) {
+      const day = Math.floor(utcMs / DAY_MS);
+      if (day === steadyDay && offset === steadyOffset) return true;
+      const ok = steady(day, offset) && steady(day - 1, offset) && steady(day + 1, offset);
+      if (ok) [steadyDay, steadyOffset] = [day, offset];
+      return ok;
+    },
     instantsOf(localMs) {
       // Offsets well before and after bracket any change near this wall-clock time.
       const before = offsetAt(localMs - DAY_MS);

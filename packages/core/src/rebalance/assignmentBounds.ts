@@ -33,6 +33,8 @@ export function directionSet(count: number): DirectionSet {
 export const NODE_DIRECTIONS = 64;
 /** Sides tried either side of the centre direction at a node. */
 export const NODE_WINDOW = 2;
+/** Moves left at or below which node bounds count the move limit (tables grow with it). */
+export const LIMITED_MOVES = 6;
 /** Sides used for the one-off bound reported with an answer: 256 sides lose at most 0.008 %. */
 export const REPORT_DIRECTIONS = 256;
 
@@ -63,6 +65,24 @@ export function suffixDirectionTable(p: AssignmentProblem, order: Int32Array, di
 }
 
 /**
+ * atan2 within 0.0003 rad (a polynomial on the octant): only picks the middle of the
+ * window of polygon sides, so its error only has to stay well inside one side
+ * (2π/64 = 0.098 rad); several times cheaper than Math.atan2 at every node.
+ */
+function roughAngle(y: number, x: number): number {
+  const ax = Math.abs(x);
+  const ay = Math.abs(y);
+  if (ax === 0 && ay === 0) return 0;
+  const t = ax > ay ? ay / ax : ax / ay;
+  // atan(t) on [0, 1]: the usual odd polynomial fit.
+  const t2 = t * t;
+  let a = ((-0.0464964749 * t2 + 0.15931422) * t2 - 0.327622764) * t2 * t + t;
+  if (ay > ax) a = Math.PI / 2 - a;
+  if (x < 0) a = Math.PI - a;
+  return y < 0 ? -a : a;
+}
+
+/**
  * Magnitude bounds at search nodes. The best direction for |q| lies close to the
  * direction of the centre of the reachable set (fixed part + the free circuits'
  * mean options), so only the `window` polygon sides either side of that
@@ -74,6 +94,10 @@ export class NodeBounder {
   private readonly table: Float64Array;
   private readonly centres: Float64Array;
   private readonly dirs: DirectionSet;
+  private readonly firstFree: number;
+  private readonly homeCentres: Float64Array;
+  private readonly homeTable: Float64Array;
+  private readonly topSavings: Float64Array;
 
   constructor(
     private readonly p: AssignmentProblem,
@@ -95,26 +119,82 @@ export class NodeBounder {
         this.centres[depth * q2 + j] = this.centres[(depth + 1) * q2 + j]! + mean / k;
       }
     }
+    // With few moves left the free circuits mostly stay: per direction, the present options'
+    // sum less the r largest savings from moving (exact for the linear function, as in
+    // magnitudeBoundsWithMoveLimit), for r up to LIMITED_MOVES. Circuits that must move
+    // come first in the order, so the tables start where they end.
+    this.firstFree = 0;
+    while (this.firstFree < n && p.home[order[this.firstFree]!]! < 0) this.firstFree++;
+    const q = p.quantityCount;
+    const D = this.dirs.count;
+    const R = LIMITED_MOVES;
+    this.homeCentres = new Float64Array((n + 1) * q2);
+    this.homeTable = new Float64Array((n + 1) * q * D);
+    this.topSavings = new Float64Array((n + 1) * q * D * (R + 1));
+    const top = new Float64Array(q * D * R); // per (j, d): the R largest savings so far, descending
+    for (let depth = n - 1; depth >= this.firstFree; depth--) {
+      const i = order[depth]!;
+      const h = p.home[i]!;
+      const home = contributionOffset(p, i, h);
+      for (let j = 0; j < q2; j++) this.homeCentres[depth * q2 + j] = this.homeCentres[(depth + 1) * q2 + j]! + p.contributions[home + j]!;
+      for (let j = 0; j < q; j++)
+        for (let d = 0; d < D; d++) {
+          const c = this.dirs.cos[d]!;
+          const sn = this.dirs.sin[d]!;
+          const stay = c * p.contributions[home + 2 * j]! + sn * p.contributions[home + 2 * j + 1]!;
+          let least = stay;
+          for (let o = 0; o < p.optionCounts[i]!; o++) {
+            const at = contributionOffset(p, i, o) + 2 * j;
+            least = Math.min(least, c * p.contributions[at]! + sn * p.contributions[at + 1]!);
+          }
+          const cell = (depth * q + j) * D + d;
+          this.homeTable[cell] = this.homeTable[((depth + 1) * q + j) * D + d]! + stay;
+          // Insert this circuit's saving into the running top-R list.
+          let saving = stay - least;
+          const list = (j * D + d) * R;
+          for (let r = 0; r < R; r++) {
+            if (saving > top[list + r]!) {
+              const held = top[list + r]!;
+              top[list + r] = saving;
+              saving = held;
+            }
+          }
+          let running = 0;
+          this.topSavings[cell * (R + 1)] = 0;
+          for (let r = 0; r < R; r++) {
+            running += top[list + r]!;
+            this.topSavings[cell * (R + 1) + r + 1] = running;
+          }
+        }
+    }
   }
 
-  /** Bounds on every magnitude below a node: `sums` at `at` holds base + the circuits before `depth`. */
-  bounds(sums: Float64Array, at: number, depth: number, out: Float64Array): Float64Array {
+  /**
+   * Bounds on every magnitude below a node: `sums` at `at` holds base + the circuits before
+   * `depth`; `movesLeft` is how many of the rest may still move.
+   */
+  bounds(sums: Float64Array, at: number, depth: number, out: Float64Array, movesLeft = Infinity): Float64Array {
     const q = this.p.quantityCount;
     const D = this.dirs.count;
     const { cos, sin } = this.dirs;
     const perTurn = D / (2 * Math.PI);
     const w = this.window;
+    const R = LIMITED_MOVES;
+    const limited = movesLeft <= R && depth >= this.firstFree;
+    const centres = limited ? this.homeCentres : this.centres;
     for (let j = 0; j < q; j++) {
       const re = sums[at + 2 * j]!;
       const im = sums[at + 2 * j + 1]!;
-      const cRe = re + this.centres[depth * 2 * q + 2 * j]!;
-      const cIm = im + this.centres[depth * 2 * q + 2 * j + 1]!;
+      const cRe = re + centres[depth * 2 * q + 2 * j]!;
+      const cIm = im + centres[depth * 2 * q + 2 * j + 1]!;
       const row = (depth * q + j) * D;
-      const middle = Math.round(Math.atan2(cIm, cRe) * perTurn);
+      const middle = Math.round(roughAngle(cIm, cRe) * perTurn);
       let best = 0;
       for (let t = middle - w; t <= middle + w; t++) {
         const d = ((t % D) + D) % D;
-        const v = cos[d]! * re + sin[d]! * im + this.table[row + d]!;
+        const v = limited
+          ? cos[d]! * re + sin[d]! * im + this.homeTable[row + d]! - this.topSavings[(row + d) * (R + 1) + movesLeft]!
+          : cos[d]! * re + sin[d]! * im + this.table[row + d]!;
         if (v > best) best = v;
       }
       out[j] = best;

@@ -165,7 +165,7 @@ function checkCapacity(built: BuiltProblem, study: ResolvedRebalance, limit: num
         inputIssue(
           'capacity_unreachable',
           study.capacityPaths[k]!,
-          `a capacity of at least ${bounds[j]!.toFixed(1)} A for line ${line} in "${layout.name}": the circuits that cannot move draw ${fixed.toFixed(1)} A on it and no spread of the others brings it lower`,
+          `a capacity of at least ${bounds[j]!.toFixed(1)} A for line ${line} in "${layout.name}": the circuits that cannot move draw ${fixed.toFixed(1)} A on it and no spread of the others${limit < built.problem.circuitCount ? ` with at most ${limit} move${limit === 1 ? '' : 's'}` : ''} brings it lower`,
           cap,
         ),
       ];

@@ -130,7 +130,7 @@ export function searchExact(p: AssignmentProblem, options: ExactSearchOptions): 
       if (childMoves > moveLimit) continue;
       const c = contributionOffset(p, i, k);
       for (let j = 0; j < q2; j++) sums[next + j] = sums[at + j]! + p.contributions[c + j]!;
-      const lb = bounder.bounds(sums, next, depth + 1, mags);
+      const lb = bounder.bounds(sums, next, depth + 1, mags, moveLimit - childMoves);
       let reachable = true;
       for (let j = 0; j < p.quantityCount; j++) if (lb[j]! > p.limits[j]! + tie) reachable = false;
       if (!reachable) continue;

@@ -1,0 +1,107 @@
+/**
+ * Scenarios from the board file (`profile.scenarios`): named load states with
+ * the hours the board spends in each, for users without logged data. Each
+ * scenario is one interval of the batch solve; energy and the billing power
+ * factor weigh them by their hours.
+ */
+import type { Board } from '../board/boardModel.js';
+import { InputError, inputIssue, type InputIssue } from '../errors.js';
+import { compileBatchNetwork, type DriverSpec } from './batchNetwork.js';
+import { ratedPower } from './columnPlan.js';
+import type { ProfileSpec } from './profileSpec.js';
+import { allocateFigures, solveBatch } from './solveBatch.js';
+
+export interface ScenarioReading {
+  readonly name: string;
+  readonly hours: number;
+  readonly lineA: readonly number[];
+  readonly neutralA: number | null;
+  readonly lowestVoltagePercent: number;
+  readonly highestVoltagePercent: number;
+  readonly unbalancePercent: number | null;
+  readonly kW: number;
+  readonly kvar: number;
+  readonly pf: number;
+}
+
+export interface ScenarioResult {
+  readonly board: string;
+  readonly path: 'closed-form' | 'nodal';
+  readonly scenarios: readonly ScenarioReading[];
+  readonly hours: number;
+  readonly kWhImport: number;
+  readonly kvarhLagging: number;
+  readonly billingPf: number;
+  readonly lineRatingA: number | null;
+  readonly neutralRatingA: number | null;
+}
+
+const YEAR_HOURS = 8760;
+
+/**
+ * @throws {InputError} when a scenario names a load or group the board does not have, or
+ *   mixes hours and weights.
+ */
+export function studyScenarios(board: Board, profile: ProfileSpec): ScenarioResult {
+  const scenarios = profile.scenarios ?? [];
+  const issues: InputIssue[] = [];
+  const loadIndex = new Map(board.loads.map((l, i) => [l.name, i]));
+  const groups = profile.groups ?? {};
+  const withHours = scenarios.filter((s) => s.hours !== undefined).length;
+  if (withHours !== 0 && withHours !== scenarios.length)
+    issues.push(inputIssue('mixed', 'profile.scenarios', 'every scenario with hours, or every scenario with a weight'));
+  scenarios.forEach((s, k) => {
+    if (s.hours === undefined && s.weight === undefined) issues.push(inputIssue('missing', `profile.scenarios[${k}].hours`, 'hours or weight'));
+    for (const name of Object.keys(s.loads))
+      if (!loadIndex.has(name) && !groups[name]) issues.push(inputIssue('unknown_load', `profile.scenarios[${k}].loads.${name}`, 'a load or group name of this board', name));
+  });
+  if (issues.length) throw new InputError(issues, 'the scenarios are not valid');
+  const totalWeight = scenarios.reduce((a, s) => a + (s.weight ?? 0), 0);
+  const hours = scenarios.map((s) => s.hours ?? ((s.weight ?? 0) / totalWeight) * YEAR_HOURS);
+  // One scale-factor driver per load; each scenario is one interval.
+  const drivers: DriverSpec[] = board.loads.map((l, i) => ({ name: l.name, loads: [{ load: i, coefficient: ratedPower(l) }] }));
+  const n = scenarios.length;
+  const re = board.loads.map(() => new Float64Array(n));
+  scenarios.forEach((s, k) => {
+    board.loads.forEach((_, i) => (re[i]![k] = s.others ?? 0));
+    for (const [name, scale] of Object.entries(s.loads)) for (const n2 of groups[name] ?? [name]) re[loadIndex.get(n2)!]![k] = scale;
+  });
+  const figures = allocateFigures(n, board.phases.length);
+  const net = compileBatchNetwork(board, drivers);
+  const { path } = solveBatch(net, { count: n, re, im: re.map(() => new Float64Array(n)) }, figures);
+  const vPct = 100 / board.nominalLineToNeutralV;
+  const readings = scenarios.map((s, k): ScenarioReading => {
+    let w = 0;
+    let q = 0;
+    for (let p = 0; p < board.phases.length; p++) {
+      w += figures.phaseW[p]![k]!;
+      q += figures.phaseVar[p]![k]!;
+    }
+    const volts = figures.phaseV.map((c) => c[k]! * vPct);
+    return {
+      name: s.name,
+      hours: hours[k]!,
+      lineA: figures.lineA.map((c) => c[k]!),
+      neutralA: board.hasNeutral ? figures.neutralA[k]! : null,
+      lowestVoltagePercent: Math.min(...volts),
+      highestVoltagePercent: Math.max(...volts),
+      unbalancePercent: board.phases.length === 3 ? figures.unbalancePercent[k]! : null,
+      kW: w / 1000,
+      kvar: q / 1000,
+      pf: Math.hypot(w, q) === 0 ? 1 : Math.abs(w) / Math.hypot(w, q),
+    };
+  });
+  const kWhImport = readings.reduce((a, r) => a + Math.max(r.kW, 0) * r.hours, 0);
+  const kvarhLagging = readings.reduce((a, r) => a + Math.max(r.kvar, 0) * r.hours, 0);
+  return {
+    board: board.name,
+    path,
+    scenarios: readings,
+    hours: hours.reduce((a, b) => a + b, 0),
+    kWhImport,
+    kvarhLagging,
+    billingPf: kWhImport > 0 ? kWhImport / Math.hypot(kWhImport, kvarhLagging) : 1,
+    lineRatingA: board.lineRatingA,
+    neutralRatingA: board.neutralRatingA,
+  };
+}

@@ -1,0 +1,51 @@
+/** Board-file scenarios: each is the board solved at its load levels; the year weighs them by hours. */
+import { describe, expect, it } from 'vitest';
+import { InputError, normaliseBoard, parseBoard, solveBoard, studyScenarios } from '@trivar/core';
+import { expectClose } from '../support/tolerance.js';
+
+const spec = {
+  supply: { system: 'three-phase-4wire', voltage: { lineToLine: 400 }, frequencyHz: 50, impedance: { r: 0.02, x: 0.05 } },
+  feeder: { neutral: { r: 0.05, x: 0.01 } },
+  loads: [
+    { name: 'kiln', connection: 'A-N', kW: 6, pf: 0.9 },
+    { name: 'press', connection: 'B-C', kW: 8, pf: 0.8 },
+    { name: 'lamps', connection: 'C-N', kW: 2, pf: 1 },
+  ],
+  profile: {
+    groups: { workshop: ['kiln', 'press'] },
+    scenarios: [
+      { name: 'shift', weight: 3, loads: { workshop: 0.75 }, others: 1 },
+      { name: 'night', weight: 1, loads: { lamps: 0.5 } },
+    ],
+  },
+} as const;
+
+describe('scenarios', () => {
+  const parsed = parseBoard(spec);
+  const board = normaliseBoard(parsed);
+  const result = studyScenarios(board, parsed.profile!);
+
+  it('solve each scenario as the board at those levels (agrees with solveBoard to 1e-9)', () => {
+    const shift = solveBoard({ ...spec, loads: [{ ...spec.loads[0], kW: 4.5 }, { ...spec.loads[1], kW: 6 }, spec.loads[2]] });
+    result.scenarios[0]!.lineA.forEach((a, k) => expectClose(a, shift.phases[k]!.current.magnitude, { rel: 1e-9, abs: 1e-9 }, `line ${k}`));
+    expectClose(result.scenarios[0]!.neutralA!, shift.neutral!.current.magnitude, { rel: 1e-9, abs: 1e-9 }, 'neutral');
+    expect(result.path).toBe('nodal'); // the B-C press keeps it off the closed-form path
+  });
+
+  it('share the year by weight and weigh energy by hours', () => {
+    expect(result.scenarios.map((s) => s.hours)).toEqual([6570, 2190]);
+    const kWh = result.scenarios.reduce((a, s) => a + s.kW * s.hours, 0);
+    expectClose(result.kWhImport, kWh, { rel: 1e-12, abs: 0 }, 'kWh');
+    expect(result.billingPf).toBeCloseTo(result.kWhImport / Math.hypot(result.kWhImport, result.kvarhLagging), 12);
+  });
+
+  it('name an unknown load by its path', () => {
+    try {
+      studyScenarios(board, { scenarios: [{ name: 'x', hours: 10, loads: { oven: 1 } }] });
+      expect.unreachable();
+    } catch (e) {
+      expect(e).toBeInstanceOf(InputError);
+      expect((e as InputError).issues.map((i) => [i.code, i.path])).toEqual([['unknown_load', 'profile.scenarios[0].loads.oven']]);
+    }
+  });
+});
