@@ -28,9 +28,10 @@ function verdict(r: RebalanceReport): string {
     : r.score.gapPercent !== null
       ? `best found; at most ${fixed(r.score.gapPercent, 2)} % (${score(r.score.gap ?? 0)}) above the best possible`
       : 'best found; no bound';
-  const limit = r.moveLimit === null ? '' : ` within ${r.moveLimit} move${r.moveLimit === 1 ? '' : 's'}`;
-  const near = r.nearBest ? ` — fewest moves within ${fixed(r.nearBest.percent, 1)} % of the best score ${score(r.nearBest.bestScore)}` : '';
-  return `${proof}${limit}${near}`;
+  const plural = (n: number) => `${n} move${n === 1 ? '' : 's'}`;
+  if (r.nearBest)
+    return `${proof} with at most ${plural(r.moves.length)}: the fewest moves within ${fixed(r.nearBest.percent, 1)} % of the best score ${score(r.nearBest.bestScore)}`;
+  return `${proof}${r.moveLimit === null ? '' : ` with at most ${plural(r.moveLimit)}`}`;
 }
 
 function workOrder(r: RebalanceReport): string {
