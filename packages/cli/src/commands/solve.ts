@@ -2,6 +2,7 @@
 import { InputError, isInstallationInput, readBoardText, solveBoard, solveInstallation, type BoardResult, type InstallationResult } from '@trivar/core';
 import type { CliIo } from '../io.js';
 import { writeResult } from '../writeResult.js';
+import { collapseError } from '../exitCodes.js';
 import { renderSolveReport } from '../format/solveReport.js';
 import { renderInstallationReport } from '../format/installationReport.js';
 
@@ -23,6 +24,7 @@ export async function runSolve(file: string, options: SolveCommandOptions, io: C
       throw new InputError([{ code: 'not_applicable', path: '', expected: 'an installation file (with boards:) for --board and --all-boards', message: '--board and --all-boards apply to installation files (with boards:), and this is a single board' }], 'the options do not fit the file');
     const result = solveBoard(input, solveOptions);
     writeResult(io, result, options.json, renderSolveReport);
+    if (result.operatingPoint.collapsed) throw collapseError(result);
     return result;
   }
   const result = solveInstallation(input, solveOptions);

@@ -166,6 +166,7 @@ export function normaliseBoard(spec: BoardSpec): Board {
     neutralOpen: false,
     lineRatingA: feeder.lineRatingA,
     neutralRatingA: feeder.neutralRatingA,
+    transformerKVA: spec.supply.impedance ? null : (spec.supply.transformer?.kVA ?? null),
     loads: spec.loads.map((load, i) => loadBranches(load, i, spec, ln, ll)),
     studies: { openNeutral: spec.studies?.openNeutral ?? false },
     ...unequal,
