@@ -31,9 +31,13 @@ function findChromium(): string | null {
 const executablePath = findChromium();
 const mustRun = process.env.CI === 'true';
 const ARTIFACTS = join(ROOT, 'test/browser/artifacts');
-const examples = readdirSync(join(ROOT, 'examples'))
-  .filter((f) => f.endsWith('.yaml'))
-  .map((f) => f.replace(/\.yaml$/, ''));
+const PROFILE_REPORT = 'quay-street-flats-with-profile';
+const examples = [
+  ...readdirSync(join(ROOT, 'examples'))
+    .filter((f) => f.endsWith('.yaml'))
+    .map((f) => f.replace(/\.yaml$/, '')),
+  PROFILE_REPORT,
+];
 
 /** Text block of the print stylesheet (14 mm margins) at 96 px per inch. */
 const PAPER = [
@@ -52,9 +56,15 @@ if (!executablePath && !mustRun) {
       expect(executablePath, 'CI=true but Chromium was not found').not.toBeNull();
       mkdirSync(ARTIFACTS, { recursive: true });
       for (const name of examples) {
+        if (name === PROFILE_REPORT) continue;
         const r = runTrivar(['report', `examples/${name}.yaml`, '-o', join(ARTIFACTS, `${name}.html`)]);
         if (r.code !== 0) throw new Error(`trivar report failed for ${name}: ${r.stderr}`);
       }
+      // One report with a load-profile section (a week of generated interval data).
+      const data = join(ARTIFACTS, 'quay-street-week.csv');
+      execFileSync(process.execPath, [join(ROOT, 'scripts/generate-profile-example.mjs'), data, '--days', '7'], { cwd: ROOT });
+      const p = runTrivar(['report', 'examples/quay-street-flats.yaml', '--profile-data', data, '-o', join(ARTIFACTS, `${PROFILE_REPORT}.html`)]);
+      if (p.code !== 0) throw new Error(`trivar report with profile data failed: ${p.stderr}`);
       // Root (CI) cannot use Chromium's sandbox; the pages are trivar's own local files.
       browser = await chromium.launch({ executablePath: executablePath!, args: ['--no-sandbox', '--disable-gpu'] });
     }, 120_000);
@@ -88,7 +98,8 @@ if (!executablePath && !mustRun) {
             return { text: t.textContent ?? '', x: b.x, y: b.y, w: b.width, h: b.height };
           });
           const rect = svg.getBoundingClientRect();
-          return { name: fig.getAttribute('data-figure')!, view: svg.getAttribute('data-view'), phasors, boxes, width: rect.width, height: rect.height };
+          const curves = svg.querySelectorAll('polyline.series').length;
+          return { name: fig.getAttribute('data-figure')!, view: svg.getAttribute('data-view'), phasors, curves, boxes, width: rect.width, height: rect.height };
         }),
       );
       await page.close();
@@ -103,6 +114,7 @@ if (!executablePath && !mustRun) {
           expect(currents.filter((p) => p.phase !== 'N').length, `${f.name} has a current per line`).toBe(voltages.length);
         }
         if (f.view === 'sequence') expect(f.phasors).toHaveLength(14); // per row: 1 zero + 3 positive + 3 negative
+        if (f.view === 'impedance-scan') expect(f.curves, `${f.name} has its curves`).toBeGreaterThan(0);
         if (f.view === 'triangles') expect(f.phasors.filter((p) => p.state === 'change').length).toBe(f.phasors.length / 3);
         const overlaps: string[] = [];
         f.boxes.forEach((a, i) =>

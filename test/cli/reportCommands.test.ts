@@ -1,4 +1,5 @@
 /** `trivar report` and `trivar diagram` run as a user would (built binary). */
+import { execFileSync } from 'node:child_process';
 import { mkdtempSync, readFileSync, readdirSync, writeFileSync, copyFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
@@ -25,6 +26,33 @@ describe('trivar report', () => {
     expect(runTrivar(['report', 'examples/riverside-cold-store.yaml', '--no-correction', '-o', join(dir, 'b.html')]).code).toBe(0);
     expect(readFileSync(join(dir, 'a.html'), 'utf8')).toContain('<section id="correction">');
     expect(readFileSync(join(dir, 'b.html'), 'utf8')).not.toContain('<section id="correction">');
+  });
+
+  it('includes the harmonic study when the board file has one, or leaves it out with --no-harmonics', () => {
+    const dir = scratch();
+    expect(runTrivar(['report', 'examples/mill-street-offices.yaml', '-o', join(dir, 'a.html')]).code).toBe(0);
+    expect(runTrivar(['report', 'examples/mill-street-offices.yaml', '--no-harmonics', '-o', join(dir, 'b.html')]).code).toBe(0);
+    const a = readFileSync(join(dir, 'a.html'), 'utf8');
+    expect(a).toContain('<section id="harmonics">');
+    expect(a).toContain('data-view="impedance-scan"');
+    expect(readFileSync(join(dir, 'b.html'), 'utf8')).not.toContain('<section id="harmonics">');
+  });
+
+  it('--profile-data adds the load-over-time section with its charts, figures as trivar profile gives them', () => {
+    const dir = scratch();
+    const data = join(dir, 'quay.csv');
+    execFileSync(process.execPath, [`${ROOT}scripts/generate-profile-example.mjs`, data, '--days', '3'], { cwd: ROOT });
+    const r = runTrivar(['report', 'examples/quay-street-flats.yaml', '--profile-data', data, '-o', join(dir, 'r.html')]);
+    expect(r.stderr).toBe('');
+    expect(r.code).toBe(0);
+    const html = readFileSync(join(dir, 'r.html'), 'utf8');
+    expect(html).toContain('<section id="profile">');
+    for (const chart of ['profile-currents', 'profile-power-factor', 'profile-load-duration']) expect(html).toContain(`data-figure="${chart}"`);
+    const profile = JSON.parse(runTrivar(['profile', 'examples/quay-street-flats.yaml', '--data', data, '--json']).stdout) as { before: { conductors: { conductor: string; maxA: number }[] } };
+    const section = html.split('<section id="profile">')[1]!.split('</section>')[0]!;
+    for (const c of profile.before.conductors) expect(section).toContain(`<td>${c.conductor}</td><td class="num">${c.maxA.toFixed(1)}</td>`);
+    // The data file is an input too.
+    expect(runTrivar(['report', 'examples/quay-street-flats.yaml', '--profile-data', data, '-o', data]).code).toBe(2);
   });
 
   it('--format md writes the Markdown and its SVG figures beside it', () => {

@@ -119,7 +119,8 @@ Examples:
   trivar diagram examples/hillside-workshop.yaml --view sequence > sequence.svg`;
 
 const REPORT_EXAMPLES = `
-The report includes the correction study when the board file has a "correction:" section.
+The report includes the correction study when the board file has a "correction:" section, and the harmonic
+study when it has a "harmonics:" section or loads with a spectrum.
 
 Examples:
   trivar report examples/riverside-cold-store.yaml -o cold-store.html
@@ -268,6 +269,9 @@ export function createProgram(io: CliIo, outcome: RunOutcome = { exitCode: EXIT.
     .option('-o, --output <file>', 'report file to write (HTML may go to standard output)')
     .addOption(new Option('--format <kind>', 'report format').choices(['html', 'md']).default('html'))
     .option('--no-correction', "leave out the board file's correction study")
+    .option('--no-harmonics', "leave out the harmonic study (run when the board file has a harmonics: section or load spectra)")
+    .option('--profile-data <file.csv>', 'add a load-over-time section from interval data (columns as for trivar profile --data)')
+    .option('--time-zone <zone>', 'IANA time zone of the interval data (default UTC)')
     .addHelpText('after', REPORT_EXAMPLES)
     .action(async (board: string, opts: ReportCommandOptions) => {
       await runReport(board, opts, io, `Made with trivar ${VERSION}. Figures come from the model entered; check them against measurements and local codes.`);

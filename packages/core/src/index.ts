@@ -171,6 +171,7 @@ export type { SequenceDiagramOptions } from './render/renderSequenceDiagram.js';
 export { renderSequenceDiagram } from './render/renderSequenceDiagram.js';
 export type { CurrentTriangleOptions, LineCurrentParts } from './render/renderCurrentTriangles.js';
 export { renderCurrentTriangles, lineCurrentParts } from './render/renderCurrentTriangles.js';
+export { renderImpedanceScan } from './render/renderImpedanceScan.js';
 export type { ReportDocument, ReportSection, ReportBlock, ReportColumn } from './render/report/reportDocument.js';
 export type { BoardReportInput } from './render/report/buildBoardReport.js';
 export { buildBoardReport } from './render/report/buildBoardReport.js';
@@ -178,6 +179,9 @@ export type { ReportHtmlOptions } from './render/report/renderReportHtml.js';
 export { renderReportHtml } from './render/report/renderReportHtml.js';
 export type { MarkdownReport } from './render/report/renderReportMarkdown.js';
 export { renderReportMarkdown } from './render/report/renderReportMarkdown.js';
+export type { ProfileChart } from './render/report/profileSection.js';
+export { profileSection } from './render/report/profileSection.js';
+export { harmonicsSection } from './render/report/harmonicsSection.js';
 
 // Checking hand calculations (trivar check)
 export type { HandFiguresSpec, HandCapacitorSpec, HandBranch } from './handCheck/handFiguresSpec.js';
@@ -188,3 +192,5 @@ export { checkHandFigures, addHandCapacitors } from './handCheck/checkHandFigure
 export { textbookWorking } from './handCheck/textbookWorking.js';
 export type { ScenarioReading, ScenarioResult } from './profile/studyScenarios.js';
 export { studyScenarios } from './profile/studyScenarios.js';
+export type { SwitchingFromBank } from './profile/switchingFromBank.js';
+export { switchingFromBank } from './profile/switchingFromBank.js';

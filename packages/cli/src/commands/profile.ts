@@ -40,31 +40,25 @@ export interface ProfileCommandOptions {
   readonly threads?: number;
 }
 
-export async function runProfile(file: string, options: ProfileCommandOptions, io: CliIo): Promise<ProfileStudy | null> {
-  const spec = parseBoard(readBoardText(await io.readSource(file)));
+/**
+ * Reads the interval data and runs the profile study on a parsed board (no files written);
+ * `trivar profile` and `trivar report --profile-data` share it.
+ */
+export async function computeProfileStudy(spec: ReturnType<typeof parseBoard>, data: string, options: ProfileCommandOptions, io: CliIo): Promise<ProfileStudy> {
   const board = normaliseBoard(spec);
   const zone = options.timeZone ?? 'UTC';
   if (!isKnownTimeZone(zone)) throw new UsageError(`--time-zone: "${zone}" is not a time zone this system knows (expected an IANA name such as Europe/Lisbon or America/Chicago)`);
-  if (!options.data) {
-    if (!spec.profile?.scenarios) throw new UsageError('give the interval data with --data <file.csv>, or scenarios under profile.scenarios in the board file (see trivar profile --help)');
-    const result = studyScenarios(board, spec.profile);
-    writeResult(io, result, options.json, renderScenarioReport);
-    return null;
-  }
-  const chartFiles = options.charts ? CHART_FILES.map((name) => join(options.charts!, name)) : [];
-  assertNotInput([options.summaryCsv, options.intervalsCsv, ...chartFiles].filter((x): x is string => x !== undefined), [file, options.data]);
-  const plan = planColumns(board, readCsvHeader(options.data), { ...(spec.profile?.groups ? { groups: spec.profile.groups } : {}), undrivenAtRating: options.unlistedAtRating ?? false });
+  const plan = planColumns(board, readCsvHeader(data), { ...(spec.profile?.groups ? { groups: spec.profile.groups } : {}), undrivenAtRating: options.unlistedAtRating ?? false });
   const progress = startProgress(io);
-  let study: ProfileStudy;
   // Stop the bar on every way out, or its timer keeps the process alive and the cursor hidden.
   try {
     progress.stage('reading', 1);
     const threads = options.threads ?? Math.min(2, availableParallelism());
-    const raw = await readIntervalRows(options.data, plan, { timeZone: zone }, threads);
+    const raw = await readIntervalRows(data, plan, { timeZone: zone }, threads);
     const table = checkIntervalSequence(raw, options.fillGaps ?? 'none');
     const drivers = planDrivers(plan);
     const columns = driverColumns(plan, table.values, table.count);
-    study = studyProfile(
+    return studyProfile(
       {
         board: plan.board,
         drivers,
@@ -85,6 +79,22 @@ export async function runProfile(file: string, options: ProfileCommandOptions, i
   } finally {
     progress.stop();
   }
+}
+
+export async function runProfile(file: string, options: ProfileCommandOptions, io: CliIo): Promise<ProfileStudy | null> {
+  const spec = parseBoard(readBoardText(await io.readSource(file)));
+  const board = normaliseBoard(spec);
+  const zone = options.timeZone ?? 'UTC';
+  if (!isKnownTimeZone(zone)) throw new UsageError(`--time-zone: "${zone}" is not a time zone this system knows (expected an IANA name such as Europe/Lisbon or America/Chicago)`);
+  if (!options.data) {
+    if (!spec.profile?.scenarios) throw new UsageError('give the interval data with --data <file.csv>, or scenarios under profile.scenarios in the board file (see trivar profile --help)');
+    const result = studyScenarios(board, spec.profile);
+    writeResult(io, result, options.json, renderScenarioReport);
+    return null;
+  }
+  const chartFiles = options.charts ? CHART_FILES.map((name) => join(options.charts!, name)) : [];
+  assertNotInput([options.summaryCsv, options.intervalsCsv, ...chartFiles].filter((x): x is string => x !== undefined), [file, options.data]);
+  const study = await computeProfileStudy(spec, options.data, options, io);
   const currency = spec.profile?.tariff?.currency ?? 'units';
   if (options.summaryCsv) writeOutputFile(options.summaryCsv, summaryCsv(study.result));
   if (options.intervalsCsv) writeOutputFile(options.intervalsCsv, intervalCsv(study));

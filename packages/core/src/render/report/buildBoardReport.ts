@@ -6,6 +6,8 @@
 import type { BoardSpec } from '../../board/boardSchema.js';
 import type { BoardResult } from '../../analysis/boardResult.js';
 import type { CorrectionReport } from '../../correction/correctionResult.js';
+import type { HarmonicsReport } from '../../harmonics/harmonicsResult.js';
+import { harmonicsSection, HARMONICS_STANDARDS } from './harmonicsSection.js';
 import type { ReportDocument, ReportSection } from './reportDocument.js';
 import { installationSection, openNeutralSection, resultsSection, scheduleSection } from './boardSections.js';
 import { correctionSection, resonanceSection } from './correctionSection.js';
@@ -18,6 +20,8 @@ export interface BoardReportInput {
   readonly result: BoardResult;
   /** A correction study of the same board, if one ran. @defaultValue none */
   readonly correction?: CorrectionReport | null;
+  /** A harmonic study of the same board, if one ran; its section replaces the correction's resonance estimate. @defaultValue none */
+  readonly harmonics?: HarmonicsReport | null;
   /**
    * Sections from further studies (harmonic spectrum, load profile…), placed
    * before the assumptions. A section whose id is already present replaces it
@@ -30,8 +34,14 @@ export interface BoardReportInput {
 function closingSections(input: BoardReportInput): ReportSection[] {
   const correction = input.correction ?? null;
   const assumptions = [...MODEL_ASSUMPTIONS, ...(correction ? CORRECTION_ASSUMPTIONS : [])];
-  const standards = [...BOARD_STANDARDS, ...(input.result.sequences ? THREE_PHASE_STANDARDS : []), ...(correction ? CORRECTION_STANDARDS : [])];
-  const cautions = [...new Set([...(correction?.cautions ?? []), ...input.result.cautions])];
+  const harmonics = input.harmonics ?? null;
+  const standards = [
+    ...BOARD_STANDARDS,
+    ...(input.result.sequences ? THREE_PHASE_STANDARDS : []),
+    ...(correction ? CORRECTION_STANDARDS : []),
+    ...(harmonics ? HARMONICS_STANDARDS : []),
+  ];
+  const cautions = [...new Set([...(correction?.cautions ?? []), ...(harmonics?.cautions ?? []), ...input.result.cautions])];
   return [
     { id: 'assumptions', title: 'Assumptions', blocks: [{ kind: 'list', items: assumptions }] },
     {
@@ -60,6 +70,12 @@ export function buildBoardReport(input: BoardReportInput): ReportDocument {
     sections.push(correctionSection(correction));
     const resonance = resonanceSection(correction);
     if (resonance) sections.push(resonance);
+  }
+  if (input.harmonics) {
+    const section = harmonicsSection(input.harmonics);
+    const at = sections.findIndex((s) => s.id === section.id);
+    if (at >= 0) sections[at] = section;
+    else sections.push(section);
   }
   for (const extra of input.studySections ?? []) {
     const at = sections.findIndex((s) => s.id === extra.id);
