@@ -70,12 +70,12 @@ describe('open-neutral continuation, regression', () => {
     // still held about 5 % of nominal: the final jump to open was taken for a collapse.
     const spec = {
       name: 'heavy B-C capacitive load, one light A-N load',
-      supply: { system: 'three-phase-4wire', voltage: { lineToNeutral: 230 }, frequencyHz: 50, impedance: { r: 0.103, x: 0 } },
+      supply: { system: 'three-phase-4wire' as const, voltage: { lineToNeutral: 230 }, frequencyHz: 50 as const, impedance: { r: 0.103, x: 0 } },
       feeder: { line: { lengthM: 5, rOhmPerKm: 18.5, xOhmPerKm: 0 } },
       loads: [
-        { name: 'L1', connection: 'B-C', kW: 7.4, pf: 0.5, sense: 'leading', model: 'constant-impedance' },
-        { name: 'L2', connection: 'C-A', kW: 0.15, pf: 0.5, model: 'constant-impedance' },
-        { name: 'L3', connection: 'A-N', kW: 0.15, pf: 0.5, model: 'constant-impedance' },
+        { name: 'L1', connection: 'B-C', kW: 7.4, pf: 0.5, sense: 'leading' as const, model: 'constant-impedance' as const },
+        { name: 'L2', connection: 'C-A', kW: 0.15, pf: 0.5, model: 'constant-impedance' as const },
+        { name: 'L3', connection: 'A-N', kW: 0.15, pf: 0.5, model: 'constant-impedance' as const },
       ],
     };
     const path = followNeutralBreak(normaliseBoard(spec));
