@@ -21,5 +21,5 @@ const report = correctBoard(board, { arrangement: 'delta-bank', target: { pf: 0.
 export const status = report.status; //=> "meets-target"
 export const deliveredKvar = report.selection!.deliveredKvar.toFixed(2); //=> "19.85"
 export const nameplateKvar = report.selection!.nameplateKvar.toFixed(2); //=> "24.17"
-export const linePfAfter = report.verification.lines.map((l) => l.pf.after.toFixed(3)); //=> ["0.972","0.979","0.968"]
+export const linePfAfter = report.verification.lines.map((l) => l.pf.after?.toFixed(3)); //=> ["0.972","0.979","0.968"]
 export const neutralAmps = report.verification.neutralCurrentA!.after.toFixed(1); //=> "29.9"

@@ -46,6 +46,7 @@ const file = (name: string, content: string | Buffer): string => {
 
 const SUPPLY = 'supply: { system: three-phase-4wire, voltage: { lineToLine: 400 }, frequencyHz: 50 }';
 const board = (loads: string, extra = '') => `${SUPPLY}\n${extra}loads:\n${loads}\n`;
+const TX100 = 'supply: { system: three-phase-4wire, voltage: { lineToLine: 400 }, frequencyHz: 50, transformer: { kVA: 100, impedancePercent: 4, xOverR: 3 } }';
 const oneLoad = board('  - { name: oven, connection: A-N, kW: 2, pf: 1 }');
 
 interface Case {
@@ -56,6 +57,9 @@ interface Case {
   readonly code: number;
   /** What the message must say: the field or file, and the cause. */
   readonly says: RegExp[];
+  /** What stdout must (and must not) say, for cases that print a report. */
+  readonly prints?: RegExp[];
+  readonly neverPrints?: RegExp[];
 }
 
 const aliasLoads = Array.from({ length: 100 }, (_, k) => `  - { name: 'circuit ${k}', connection: A-N, kW: 1, pf: ${k === 0 ? '&pf 0.9' : '*pf'} }`).join('\n');
@@ -172,6 +176,51 @@ const CASES: Case[] = [
     code: 3,
     says: [/correction\.lightLoad\.perLoad\.__proto__/],
   },
+  // 7. overloaded and collapsed supplies
+  {
+    name: '5000 kW constant-power load on a 100 kVA transformer',
+    args: () => ['solve', file('collapse.yaml', `${TX100}\nloads: [{ name: plant, connection: ABC-delta, kW: 5000, pf: 0.9 }]\n`)],
+    code: 4,
+    says: [/no viable operating point/, /supply cannot carry/, /below 50 %/],
+    prints: [/SUPPLY COLLAPSE/],
+  },
+  {
+    name: '5000 kW of PV on a 100 kVA transformer',
+    args: () => ['solve', file('pv.yaml', `${TX100}\nloads: [{ name: array, connection: ABC-delta, kW: -5000, pf: 1 }]\n`)],
+    code: 4,
+    says: [/supply cannot carry/],
+  },
+  {
+    name: 'correct on a collapsed board says so instead of "nothing to do"',
+    args: () => ['correct', file('tiny-tx.yaml', `supply: { system: three-phase-4wire, voltage: { lineToLine: 400 }, frequencyHz: 50, transformer: { kVA: 0.1, impedancePercent: 4, xOverR: 3 } }\nloads: [{ name: heater, connection: A-N, kW: 50, pf: 1, model: constant-impedance }]\n`), '--arrangement', 'delta-bank'],
+    code: 4,
+    says: [/A-N \d+\.\d % of nominal/],
+    neverPrints: [/NOTHING TO DO/],
+  },
+  {
+    name: 'a 240 kW heater on a 100 kVA transformer: loading figure and warning',
+    args: () => ['solve', file('overload.yaml', `${TX100}\nloads: [{ name: heater, connection: ABC-delta, kW: 240, pf: 1, model: constant-impedance }]\n`)],
+    code: 0,
+    says: [],
+    prints: [/transformer loaded to 2\d\d % of its 100 kVA rating|transformer is loaded to 2\d\d %/, /transformer +\d+\.\d\d kVA at its terminals/],
+    neverPrints: [/Warnings\n  none/],
+  },
+  // 4. noise is not data
+  {
+    name: 'an idle line has no PF in the report (not "0.200 lag")',
+    args: () => ['solve', file('idle.yaml', `${TX100}\nloads: [{ name: kettle, connection: A-N, kW: 2.2, pf: 1 }, { name: fridge, connection: B-N, kW: 0.4, pf: 0.8 }]\n`)],
+    code: 0,
+    says: [],
+    prints: [/\n  C +[\d.]+ +[-\d.]+ +[\d.]+ +[-\d.]+ +0\.0 .* -\s/],
+  },
+  {
+    name: 'correcting an all-zero board: it draws no power (not "exports")',
+    args: () => ['correct', file('zero.yaml', `${SUPPLY}\nloads: [{ name: spare, connection: A-N, kW: 0, pf: 1 }]\n`), '--arrangement', 'delta-bank'],
+    code: 5,
+    says: [],
+    prints: [/draws no active power/],
+    neverPrints: [/exports active power/],
+  },
 ];
 
 describe('hostile input: exit code, no stack trace, bounded memory, a message that names the field or file', () => {
@@ -183,6 +232,8 @@ describe('hostile input: exit code, no stack trace, bounded memory, a message th
     expect(r.stderr).not.toMatch(/internal error/);
     expect(r.stderr.length).toBeLessThan(20_000);
     for (const says of c.says) expect(r.stderr).toMatch(says);
-    if (c.code === 0) expect(r.stdout).toMatch(/At the board/);
+    for (const prints of c.prints ?? []) expect(r.stdout).toMatch(prints);
+    for (const never of c.neverPrints ?? []) expect(r.stdout).not.toMatch(never);
+    if (c.code === 0 && c.args()[0] === 'solve' && !c.args().includes('--json')) expect(r.stdout).toMatch(/At the board/);
   });
 });

@@ -78,7 +78,7 @@ describe('correctBoard on an uneven 4-wire board behind a 160 kVA transformer', 
     // Line B is corrected, line A is left alone.
     const [a, b] = report.verification.lines;
     expect(b!.pf.after).toBeGreaterThanOrEqual(0.95 - 1e-9);
-    expectClose(a!.pf.after, a!.pf.before, { rel: 1e-9, abs: 0 }, 'line A');
+    expectClose(a!.pf.after!, a!.pf.before!, { rel: 1e-9, abs: 0 }, 'line A');
   });
 
   it('a bank left fully connected that is too big for the light load is flagged', () => {

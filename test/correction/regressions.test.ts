@@ -17,7 +17,7 @@ describe('correction regressions', () => {
     expect(report.sizing.status).toBe('meets-target');
     const a = report.sizing.arrangement === 'star-bank' ? report.sizing.check.lines[0]! : null;
     expect(a!.meetsMinimum).toBe(true);
-    expect(Math.abs(a!.pf - pf) / pf).toBeLessThan(1e-10);
+    expect(Math.abs(a!.pf! - pf) / pf).toBeLessThan(1e-10);
   });
 
   it('a floating star whose delta sizing is round-off with one branch at zero is no bank (not an infinite element)', () => {

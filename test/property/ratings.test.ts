@@ -44,7 +44,7 @@ describe('load ratings on an ideal balanced source', () => {
           expectComplexClose(c(got.kW * 1000, got.kvar * 1000), expected, tol, `load ${load.name} (${load.connection}) power`);
           for (const b of got.branches) expectClose(b.voltagePercent, 100, { rel: LAW_REL, abs: 0 }, `load ${load.name} branch voltage %`);
           if (load.pf !== undefined) {
-            expectClose(got.pf, load.pf, { rel: LAW_REL, abs: 0 }, `load ${load.name} pf`);
+            expectClose(got.pf!, load.pf, { rel: LAW_REL, abs: 0 }, `load ${load.name} pf`);
             // Core reads |Q| ≤ 1e-9·S as unity; any pf short of that keeps its sense.
             expect(got.sense).toBe(Math.sqrt(1 - load.pf ** 2) <= 1e-9 ? 'unity' : (load.sense ?? 'lagging'));
           }

@@ -28,6 +28,11 @@ export class UsageError extends Error {
   }
 }
 
+/** A solved board whose operating point is a collapse: exit 4, as for a board with no solution. */
+export function collapseError(result: { readonly operatingPoint: { readonly findings: readonly string[] } }): UsageError {
+  return new UsageError(`no viable operating point: the supply cannot carry these loads: ${result.operatingPoint.findings.join('; ')}`, EXIT.numerical);
+}
+
 export function exitCodeFor(error: unknown): number {
   if (error instanceof InputError) return EXIT.input;
   if (error instanceof NumericalError) return EXIT.numerical;

@@ -56,6 +56,8 @@ export { followNeutralBreak, withNeutralFault } from './analysis/followNeutralBr
 export type { NewtonOptions, NewtonOutcome } from './network/solveNetworkByNewton.js';
 export { solveNetworkByNewton } from './network/solveNetworkByNewton.js';
 export { WARNING_THRESHOLDS } from './analysis/boardWarnings.js';
+export { NOISE_FLOOR_RELATIVE } from './analysis/noiseFloor.js';
+export { SUPPLY_LIMITS } from './analysis/readSupplyState.js';
 
 // Correction
 export type {

@@ -1,7 +1,8 @@
 /** `trivar correct`: size, choose and verify power-factor correction for a board. */
-import { compareCorrections, correctBoard, InputError, normaliseBoard, parseBoard, readBoardText, type CorrectionComparison, type CorrectionReport } from '@trivar/core';
+import { compareCorrections, correctBoard, InputError, normaliseBoard, parseBoard, readBoardText, solveBoardModel, type CorrectionComparison, type CorrectionReport } from '@trivar/core';
 import type { CliIo } from '../io.js';
 import { writeResult } from '../writeResult.js';
+import { collapseError } from '../exitCodes.js';
 import { renderCorrectionReport } from '../format/correctionReport.js';
 import { renderComparisonReport } from '../format/comparisonReport.js';
 
@@ -53,6 +54,9 @@ export async function runCorrect(file: string, options: CorrectCommandOptions, i
   const study = studySpec(spec.correction as Record<string, unknown> | undefined, options);
   try {
     const board = normaliseBoard(spec);
+    // Correcting a board whose supply has collapsed would size equipment for a state that cannot exist.
+    const present = solveBoardModel(board);
+    if (present.operatingPoint.collapsed) throw collapseError(present);
     // Without an arrangement (file or option) every arrangement that fits the board is compared.
     if (study.arrangement === undefined) {
       const comparison = compareCorrections(board, study);

@@ -2,6 +2,7 @@
 import { readBoardText, solveBoard, type BoardResult } from '@trivar/core';
 import type { CliIo } from '../io.js';
 import { writeResult } from '../writeResult.js';
+import { collapseError } from '../exitCodes.js';
 import { renderSolveReport } from '../format/solveReport.js';
 
 export interface SolveCommandOptions {
@@ -14,5 +15,6 @@ export async function runSolve(file: string, options: SolveCommandOptions, io: C
   const text = await io.readSource(file, options.maxInputMb === undefined ? {} : { maxInputMB: options.maxInputMb });
   const result = solveBoard(readBoardText(text), options.openNeutral ? { openNeutral: true } : {});
   writeResult(io, result, options.json, renderSolveReport);
+  if (result.operatingPoint.collapsed) throw collapseError(result);
   return result;
 }

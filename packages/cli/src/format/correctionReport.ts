@@ -23,6 +23,10 @@ const arrow = (x: BeforeAfter, digits: number, unit = '') => `${fixed(x.before, 
 const senseWord = (s: string) => (s === 'lagging' ? 'lag' : s === 'leading' ? 'lead' : '');
 const indentLines = (lines: readonly string[]) => lines.map((l) => wrapText(l, '  ', '    ')).join('\n');
 
+
+/** A PF to 3 decimals; a line with no current has none. */
+const pfFigure = (pf: number | null): string => (pf === null ? 'no current' : fixed(pf, 3));
+
 function elementText(b: BranchSizing): string {
   if (b.element === 'none') return '-';
   if (b.element === 'capacitor') return `C ${fixed(b.capacitanceUF ?? 0, 1)} µF`;
@@ -77,8 +81,20 @@ function stepsTable(sel: BankSelection): string {
   );
 }
 
+/** True when no capacitance meets the target at the low tolerance and stays within the bounds at the high one. */
+const emptyWindow = (s: BankSelection['selections'][number]) => s.maximumCapacitanceUF !== null && s.maximumCapacitanceUF < s.minimumCapacitanceUF;
+
+/** The two bounds of an empty window, with enough decimals that they read differently. */
+function emptyWindowNote(sel: BankSelection, s: BankSelection['selections'][number]): string {
+  const hi = s.maximumCapacitanceUF ?? 0;
+  let d = 1;
+  while (d < 4 && fixed(s.minimumCapacitanceUF, d) === fixed(hi, d)) d++;
+  const tol = sel.capacitanceTolerance;
+  return `${s.branch}: no capacitance satisfies both tolerance ends — meeting the target at −${tol.minusPercent} % needs at least ${fixed(s.minimumCapacitanceUF, d)} µF nominal, keeping every line within its bounds at +${tol.plusPercent} % allows at most ${fixed(hi, d)} µF`;
+}
+
 function branchTable(sel: BankSelection): string {
-  return renderTable(
+  const table = renderTable(
     [
       { header: 'branch', align: 'left' },
       { header: 'µF needed', align: 'left' },
@@ -90,7 +106,7 @@ function branchTable(sel: BankSelection): string {
     ],
     sel.selections.map((s) => [
       s.branch,
-      `${fixed(s.minimumCapacitanceUF, 1)} – ${s.maximumCapacitanceUF === null ? '?' : fixed(s.maximumCapacitanceUF, 1)}`,
+      emptyWindow(s) ? 'none (see below)' : `${fixed(s.minimumCapacitanceUF, 1)} – ${s.maximumCapacitanceUF === null ? '?' : fixed(s.maximumCapacitanceUF, 1)}`,
       fixed(s.designCapacitanceUF, 1),
       fixed(s.fixedCapacitanceUF, 1),
       fixed(s.designKvarAtAppliedV, 2),
@@ -98,6 +114,8 @@ function branchTable(sel: BankSelection): string {
       `${fixed(s.nominalV, 0)} / ${fixed(s.highestVoltageV, 0)} / ${fixed(s.requiredRatedV, 0)}`,
     ]),
   );
+  const notes = sel.selections.filter(emptyWindow).map((s) => emptyWindowNote(sel, s));
+  return notes.length ? `${table}\n${indentLines(notes)}` : table;
 }
 
 function controllerLines(c: ControllerSettings): string[] {
@@ -142,7 +160,7 @@ function lineTable(v: CorrectionVerification): string {
       arrow(l.currentA, 1),
       arrow(l.activeCurrentA, 1),
       arrow(l.reactiveCurrentA, 1),
-      `${fixed(l.pf.before, 3)} ${senseWord(l.sense.before)} → ${fixed(l.pf.after, 3)} ${senseWord(l.sense.after)}`.replace(/ +/g, ' ').trim(),
+      `${pfFigure(l.pf.before)} ${senseWord(l.sense.before)} → ${pfFigure(l.pf.after)} ${senseWord(l.sense.after)}`.replace(/ +/g, ' ').trim(),
     ]),
   );
 }
@@ -192,7 +210,7 @@ function checksBlock(v: CorrectionVerification): string {
   );
   if (v.lightLoad) {
     const ll = v.lightLoad;
-    const lines = ll.lines.map((l) => `${l.phase} ${fixed(l.pf, 3)} ${senseWord(l.sense)}`.trim()).join(', ');
+    const lines = ll.lines.map((l) => `${l.phase} ${pfFigure(l.pf)} ${senseWord(l.sense)}`.trim()).join(', ');
     out.push(
       `light load (${fixed(ll.fraction * 100, 0)} % of the loads, fixed part ${fixed(ll.fixedKvar, 2)} kvar only): ${lines || 'no lines'}${ll.ok ? ' — no line leads' : ` — LEADS on ${ll.leadingLines.join(', ')}`}; voltage rise ${fixed(ll.voltageRise.solvedPercent, 2)} %`,
     );
@@ -218,7 +236,7 @@ function compensatorBlock(c: CompensatorSizing, ideal: CorrectionVerification | 
     `  ideal solution (may need reactors), re-solved:`,
     sizingTable(c.ideal.branches),
     indentLines([res('ideal residual', c.ideal)]),
-    ideal ? `  ideal solution verified: lines ${ideal.lines.map((l) => `${l.phase} ${fixed(l.pf.after, 3)}`).join(', ')}` : '',
+    ideal ? `  ideal solution verified: lines ${ideal.lines.map((l) => `${l.phase} ${pfFigure(l.pf.after)}`).join(', ')}` : '',
     '',
     indentLines(['best capacitor-only solution (least remaining unbalance and reactive error, no line made to lead):']),
     sizingTable(c.capacitorOnly.branches),

@@ -11,7 +11,7 @@ import { fixed } from './textTable.js';
 export const isExport = (kW: number): boolean => fixed(kW, 2).startsWith('-');
 
 export function pfCell(r: Pick<PowerReading, 'pf' | 'sense' | 'kVA' | 'kW'>): string {
-  if (fixed(r.kVA, 2) === '0.00') return '-';
+  if (r.pf === null || fixed(r.kVA, 2) === '0.00') return '-';
   if (isExport(r.kW)) return `${fixed(r.pf, 3)} export`;
   const sense = r.sense === 'lagging' ? ' lag' : r.sense === 'leading' ? ' lead' : '';
   return `${fixed(r.pf, 3)}${sense}`;

@@ -184,6 +184,9 @@ function powerBlock(r: BoardResult): string {
     row(generating ? 'loads (net)' : 'loads', `${fixed(r.totals.kW, 3)} kW, ${fixed(r.totals.kvar, 3)} kvar`),
     row('losses', `${fixed(l.totalKW, 3)} kW (source ${fixed(l.sourceKW, 3)}, line conductors ${fixed(l.lineFeederKW, 3)}, neutral ${fixed(l.neutralKW, 3)})`),
     supply,
+    ...(r.transformer
+      ? [row('transformer', `${fixed(r.transformer.kVA, 2)} kVA at its terminals; ${fixed(r.transformer.loadingPercent, 0)} % of rated current (${fixed(r.transformer.ratedKVA, 0)} kVA)`)]
+      : []),
     ...(generating ? [note('loads (net): consumption minus generation, load convention (+kW consumed, +kvar absorbed).')] : []),
   ].join('\n');
 }
@@ -191,6 +194,9 @@ function powerBlock(r: BoardResult): string {
 export function renderSolveReport(r: BoardResult): string {
   const parts = [
     headerLines(r).join('\n'),
+    ...(r.operatingPoint.collapsed
+      ? [`\nSUPPLY COLLAPSE — the supply cannot carry these loads; the figures below are not a working board:\n${r.operatingPoint.findings.map((f) => wrapText(f, '  ! ')).join('\n')}`]
+      : []),
     section('At the board') + phaseTable(r),
     section('Circuits') + loadTable(r),
     section('Symmetrical components and unbalance') + sequenceBlock(r),

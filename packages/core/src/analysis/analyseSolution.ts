@@ -12,6 +12,8 @@ import { boardPowerDefinitions } from './powerDefinitions.js';
 import { boardWarnings, GENERAL_CAUTION, NEUTRAL_CAUTION } from './boardWarnings.js';
 import { readLoads } from './readLoads.js';
 import { powerReading } from './powerReading.js';
+import { withNoiseFloor } from './noiseFloor.js';
+import { judgeOperatingPoint, readTransformer } from './readSupplyState.js';
 import type { BoardResult, LineToLineReading, LossReading, NeutralReading, PhaseReading, UnbalanceReading } from './boardResult.js';
 
 const PAIRS: Record<string, readonly [PhaseId, PhaseId][]> = {
@@ -114,7 +116,8 @@ function loadsBelowThreshold(solution: NetworkSolution) {
   });
 }
 
-export function analyseSolution(solution: NetworkSolution): BoardResult {
+export function analyseSolution(solved: NetworkSolution): BoardResult {
+  const solution = withNoiseFloor(solved);
   const { board } = solution;
   const threePhase = isThreePhase(board.system);
   const voltages = boardVoltages(solution);
@@ -135,7 +138,10 @@ export function analyseSolution(solution: NetworkSolution): BoardResult {
     sequence: seq ? { V1: seq.V1, I1: seq.I1 } : null,
   });
   const unbalance = seq?.unbalance ?? null;
-  const warnings = boardWarnings({ belowThreshold: loadsBelowThreshold(solution), phases, neutral, unbalance, loads, lineRatingA: board.lineRatingA });
+  const belowThreshold = loadsBelowThreshold(solution);
+  const transformer = readTransformer(solution);
+  const operatingPoint = judgeOperatingPoint(solution, phases, lineToLine, belowThreshold);
+  const warnings = boardWarnings({ belowThreshold, phases, neutral, unbalance, loads, lineRatingA: board.lineRatingA, transformer });
   const cautions = warnings.some((w) => w.code.startsWith('neutral')) ? [NEUTRAL_CAUTION, GENERAL_CAUTION] : [GENERAL_CAUTION];
   return {
     board: {
@@ -161,5 +167,7 @@ export function analyseSolution(solution: NetworkSolution): BoardResult {
     warnings,
     cautions,
     openNeutral: null,
+    transformer,
+    operatingPoint,
   };
 }

@@ -12,14 +12,15 @@ import type { PhaseId } from '../board/boardModel.js';
 import type { SequenceSet } from './symmetricalComponents.js';
 import type { BoardPowerDefinitions } from './powerDefinitions.js';
 
-export type PowerFactorSense = 'lagging' | 'leading' | 'unity';
+/** `none` when no power flows (no PF). */
+export type PowerFactorSense = 'lagging' | 'leading' | 'unity' | 'none';
 
 export interface PowerReading {
   readonly kW: number;
   readonly kvar: number;
   readonly kVA: number;
-  /** Displacement power factor |P|/S (1 when S = 0). */
-  readonly pf: number;
+  /** Displacement power factor |P|/S; null when no power flows (S = 0 after the noise floor): a PF is not defined then. */
+  readonly pf: number | null;
   readonly sense: PowerFactorSense;
 }
 
@@ -182,6 +183,26 @@ export interface OpenNeutralStudy {
   readonly findings: readonly string[];
 }
 
+/** The supply transformer's loading (board files with `supply.transformer`). */
+export interface TransformerReading {
+  readonly ratedKVA: number;
+  /** Apparent power at its terminals, Σ|V||I| over the lines, kVA. */
+  readonly kVA: number;
+  /** Rated line current from kVA and nominal voltage, A. */
+  readonly ratedCurrentA: number;
+  readonly largestLineCurrentA: number;
+  /** Most loaded line against the rated current, %: above 100 the transformer is overloaded. */
+  readonly loadingPercent: number;
+}
+
+/** Whether the solved point is one the supply can hold (see `SUPPLY_LIMITS`). */
+export interface OperatingPoint {
+  /** True when the supply cannot carry the loads: the figures describe a collapse, not a working board. */
+  readonly collapsed: boolean;
+  /** Why, in words; empty when not collapsed. */
+  readonly findings: readonly string[];
+}
+
 export interface BoardResult {
   readonly board: {
     readonly name: string;
@@ -208,4 +229,7 @@ export interface BoardResult {
   readonly warnings: readonly BoardWarning[];
   readonly cautions: readonly string[];
   readonly openNeutral: OpenNeutralStudy | null;
+  /** Supply transformer loading; null without a transformer. */
+  readonly transformer: TransformerReading | null;
+  readonly operatingPoint: OperatingPoint;
 }

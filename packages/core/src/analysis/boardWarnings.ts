@@ -2,7 +2,7 @@
  * Warnings with their thresholds stated, and the cautions shown with results.
  * All wording for board results lives here.
  */
-import type { BoardWarning, NeutralReading, PhaseReading, LoadReading, UnbalanceReading } from './boardResult.js';
+import type { BoardWarning, NeutralReading, PhaseReading, LoadReading, TransformerReading, UnbalanceReading } from './boardResult.js';
 
 export const WARNING_THRESHOLDS = {
   /** Voltage unbalance factor above which supply-quality standards start to object (EN 50160, IEC 61000-2-2: 2 %). */
@@ -12,6 +12,8 @@ export const WARNING_THRESHOLDS = {
 } as const;
 
 const fmt = (x: number, digits = 1) => x.toFixed(digits);
+/** Amps to 0.1 A, or to 2 significant figures when that would print a non-zero current as 0.0. */
+const amps = (x: number) => (x === 0 || x >= 0.05 ? x.toFixed(1) : x.toPrecision(2));
 
 export function boardWarnings(input: {
   /** Loads whose current/power part fell below the solver's low-voltage threshold: name and lowest per-unit voltage. */
@@ -21,6 +23,7 @@ export function boardWarnings(input: {
   readonly unbalance: UnbalanceReading | null;
   readonly loads: readonly LoadReading[];
   readonly lineRatingA: number | null;
+  readonly transformer?: TransformerReading | null;
 }): BoardWarning[] {
   const out: BoardWarning[] = [];
   const { phases, neutral, unbalance, loads, lineRatingA } = input;
@@ -29,7 +32,7 @@ export function boardWarnings(input: {
   if (neutral && phases.length > 1 && neutral.current.magnitude > smallest && neutral.current.magnitude > 0.01 * largest)
     out.push({
       code: 'neutral-above-phase',
-      message: `neutral carries ${fmt(neutral.current.magnitude)} A, more than the lightest phase (${fmt(smallest)} A): it is a current-carrying conductor and must be sized for it`,
+      message: `neutral carries ${amps(neutral.current.magnitude)} A, more than the lightest phase (${amps(smallest)} A): it is a current-carrying conductor and must be sized for it`,
       value: neutral.current.magnitude,
       threshold: smallest,
     });
@@ -74,6 +77,14 @@ export function boardWarnings(input: {
       message: `load "${b.name}" sees ${fmt(b.pu * 100)} % of its nominal voltage, below the ${fmt(b.threshold * 100, 0)} % at which its constant-current/constant-power part is taken as an impedance: it draws less than its rating here, and a real device may stall or trip`,
       value: b.pu * 100,
       threshold: b.threshold * 100,
+    });
+  const t = input.transformer;
+  if (t && t.loadingPercent > 100)
+    out.push({
+      code: 'transformer-overload',
+      message: `the supply transformer is loaded to ${fmt(t.loadingPercent, 0)} % of its ${fmt(t.ratedKVA, 0)} kVA rating (most loaded line ${fmt(t.largestLineCurrentA)} A against ${fmt(t.ratedCurrentA)} A rated; ${fmt(t.kVA, 1)} kVA at its terminals): it will overheat, and its protection should trip`,
+      value: t.loadingPercent,
+      threshold: 100,
     });
   return out;
 }

@@ -66,6 +66,8 @@ export interface Board {
   readonly neutralOpen: boolean;
   readonly lineRatingA: number | null;
   readonly neutralRatingA: number | null;
+  /** Rated kVA of the supply transformer; null when the source is given another way. */
+  readonly transformerKVA: number | null;
   readonly loads: readonly BoardLoad[];
   readonly studies: { readonly openNeutral: boolean };
 }

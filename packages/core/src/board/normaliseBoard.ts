@@ -129,6 +129,7 @@ export function normaliseBoard(spec: BoardSpec): Board {
     neutralOpen: false,
     lineRatingA: spec.feeder?.line?.ratingA ?? null,
     neutralRatingA: spec.feeder?.neutral?.ratingA ?? null,
+    transformerKVA: spec.supply.impedance ? null : (spec.supply.transformer?.kVA ?? null),
     loads: spec.loads.map((load, i) => loadBranches(load, i, spec, ln, ll)),
     studies: { openNeutral: spec.studies?.openNeutral ?? false },
   };

@@ -19,6 +19,7 @@ import { correctBoard } from './correctBoard.js';
 import { kvarFromSusceptance } from './equipment.js';
 import type { CorrectionReport, CorrectionStatus } from './correctionResult.js';
 import { ARRANGEMENT_NAMES, comparisonWording } from './correctionWording.js';
+import { balanceWorsening } from './balanceWorsening.js';
 
 /** One arrangement's outcome in figures a reader compares. */
 export interface ArrangementFigures {
@@ -83,7 +84,7 @@ function figuresOf(r: CorrectionReport): ArrangementFigures {
   const v = r.verification;
   const sel = r.selection;
   const reactorKvar = v.equipment.flatMap((g) => g.branches).reduce((s, b) => s + (b.susceptanceS < 0 ? Math.abs(kvarFromSusceptance(b.susceptanceS, b.vNominal)) : 0), 0);
-  const lowest = v.after.phases.reduce((a, p) => (p.kVA > 0 && p.pf < a ? p.pf : a), 1);
+  const lowest = v.after.phases.reduce((a, p) => (p.pf !== null && p.pf < a ? p.pf : a), 1);
   const def = r.target.definition;
   const pf = v.powerFactor;
   const targetPfAfter =
@@ -155,5 +156,11 @@ export function compareCorrections(board: Board, spec: unknown): CorrectionCompa
     others.map((o) => ({ name: ARRANGEMENT_NAMES[o.arrangement], status: o.report.status, cost: o.figures.cost, lossesKW: o.figures.lossesKW })),
     meetsTarget && near.length > 1,
   );
-  return { outcomes, recommended: chosen.arrangement, meetsTarget, why, rule: comparisonWording.rule };
+  // A verdict never hides that an arrangement makes the balance notably worse (see balanceWorsening).
+  const worse = [chosen, ...others].flatMap((o) => {
+    const changes = balanceWorsening(o.report.verification.before, o.report.verification.after);
+    return changes.length ? [comparisonWording.balanceWorse(ARRANGEMENT_NAMES[o.arrangement], o === chosen, changes)] : [];
+  });
+  const whyAll = worse.length ? `${why}; ${worse.join('; ')}` : why;
+  return { outcomes, recommended: chosen.arrangement, meetsTarget, why: whyAll, rule: comparisonWording.rule };
 }

@@ -53,9 +53,17 @@ export interface LineComparison {
   readonly activeCurrentA: BeforeAfter;
   /** Q/|V| (+ lagging). */
   readonly reactiveCurrentA: BeforeAfter;
-  readonly pf: BeforeAfter;
+  /** null on a side where the line carries no current: a PF is not defined there. */
+  readonly pf: PfBeforeAfter;
   readonly sense: { readonly before: PowerFactorSense; readonly after: PowerFactorSense };
   readonly voltageDropPercent: BeforeAfter;
+}
+
+/** A power factor before and after; null where no current flows. */
+export interface PfBeforeAfter {
+  readonly before: number | null;
+  readonly after: number | null;
+  readonly change: number | null;
 }
 
 export interface BeforeAfter {
@@ -308,7 +316,7 @@ export interface LightLoadCheck {
   /** Output of the fixed part at its applied voltage, kvar. */
   readonly fixedKvar: number;
   /** Lines at light load with only the fixed part connected, at the high capacitance tolerance. */
-  readonly lines: readonly { readonly phase: PhaseId; readonly pf: number; readonly sense: PowerFactorSense }[];
+  readonly lines: readonly { readonly phase: PhaseId; readonly pf: number | null; readonly sense: PowerFactorSense }[];
   readonly leadingLines: readonly PhaseId[];
   readonly ok: boolean;
   readonly voltageRise: VoltageRise;

@@ -96,7 +96,8 @@ export function boardPowerFactor(result: BoardResult, definition: BoardTargetDef
 
 export interface LineTargetCheck {
   readonly phase: PhaseId;
-  readonly pf: number;
+  /** null for a line with no current (no PF). */
+  readonly pf: number | null;
   readonly sense: PowerFactorSense;
   /** False for a line carrying (almost) no current, which is not judged. */
   readonly loaded: boolean;

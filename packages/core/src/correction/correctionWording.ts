@@ -26,7 +26,7 @@ export function distinctDigits(value: number, bound: number, digits = 3): [strin
   return [value.toFixed(d), bound.toFixed(digits)];
 }
 const f1 = (x: number) => x.toFixed(1);
-const pfText = (pf: number, sense: PowerFactorSense) => (sense === 'unity' ? '1.000' : `${f3(pf)} ${sense}`);
+const pfText = (pf: number | null, sense: PowerFactorSense) => (pf === null ? 'no current (no PF)' : sense === 'unity' ? '1.000' : `${f3(pf)} ${sense}`);
 
 export const TARGET_STATEMENTS: Record<TargetDefinition, string> = {
   'per-line':
@@ -38,15 +38,17 @@ export const TARGET_STATEMENTS: Record<TargetDefinition, string> = {
 };
 
 export const targetShortfall = {
-  lineBelow: (phase: PhaseId, pf: number, sense: PowerFactorSense, min: number) => {
+  lineBelow: (phase: PhaseId, pf: number | null, sense: PowerFactorSense, min: number) => {
+    if (pf === null) return `line ${phase} carries no current (no PF)`;
     const [v, m] = distinctDigits(pf, min);
     return `line ${phase} is at ${sense === 'unity' ? v : `${v} ${sense}`}, below the target ${m} lagging`;
   },
-  lineLeadsMore: (phase: PhaseId, pf: number, pfBefore: number) => {
+  lineLeadsMore: (phase: PhaseId, pf: number | null, pfBefore: number | null) => {
+    if (pf === null || pfBefore === null) return `line ${phase} led before and the equipment makes it lead more`;
     const [v, b] = distinctDigits(pf, pfBefore);
     return `line ${phase} led at ${b} before and the equipment makes it lead more (${v} leading)`;
   },
-  lineBeyond: (phase: PhaseId, pf: number, sense: PowerFactorSense, t: TargetWords) =>
+  lineBeyond: (phase: PhaseId, pf: number | null, sense: PowerFactorSense, t: TargetWords) =>
     t.maxLaggingPf !== null && t.definition === 'per-line'
       ? `line ${phase} is at ${pfText(pf, sense)}, past the upper bound ${f3(t.maxLaggingPf)} lagging`
       : t.leading === 'never'
@@ -67,6 +69,7 @@ export const infeasibleReason = {
   alreadyLeading: (phases: readonly PhaseId[]) =>
     `line${phases.length > 1 ? 's' : ''} ${phases.join(', ')} already lead${phases.length > 1 ? '' : 's'} before correction: capacitors cannot help there, a reactor would be needed`,
   exporting: 'the board exports active power, so a power-factor target has no meaning for it',
+  noLoad: 'the board draws no active power (every load is zero or off), so there is nothing to correct',
   capacitorsCannotReach: (shortfalls: readonly string[]) =>
     `no capacitor-only bank of this arrangement meets the target without breaking a bound; the best reachable leaves: ${shortfalls.join('; ')}`,
   notConverged: (iterations: number, change: number) =>
@@ -108,6 +111,10 @@ export const warningText = {
   reactorsNeeded: (branches: readonly string[], capacitorShortfalls: readonly string[]) =>
     `capacitors alone would leave ${capacitorShortfalls.join('; ') || 'the target unmet'}: the recommended compensator includes reactors on ${branches.join(', ')} (Steinmetz/Gyugyi); set compensator.reactors: none for capacitors only`,
   reactorsNotSelected: 'reactors are given as continuous values only (kvar, mH); choosing reactor hardware is not part of this study',
+  unbalanceWorse: (before: number, after: number, points: number) =>
+    `the equipment makes the current unbalance worse: |I2|/|I1| rises from ${f1(before)} % to ${f1(after)} % (flagged above a rise of ${points} percentage points); the supply transformer and upstream motors carry the extra negative-sequence current`,
+  neutralWorse: (before: number, after: number) =>
+    `the equipment raises the neutral current from ${f1(before)} A to ${f1(after)} A (flagged above a rise of 10 % and 1 A): check the neutral conductor against its rating`,
   idealSource: 'the source impedance is zero, so the steady voltage rise and the resonance order cannot be estimated',
 };
 
@@ -180,14 +187,25 @@ export const comparisonWording = {
     others: readonly { name: string; status: string; cost: number; lossesKW: number }[],
     tieOnCost: boolean,
   ) => {
+    // Nothing bought (no unit, no reactor) has no cost to quote: say so in words instead of "cost 0.0".
+    const nothingAdded = (cost: number) => cost < 1e-9;
     const head =
       status === 'already-meets-target'
         ? `${name}: the board already meets the target, nothing to add`
         : status === 'meets-target' || status === 'meets-target-at-nominal-capacitance'
-          ? `${name}: ${STATUS_SHORT[status]} at ${tieOnCost ? 'about the least cost and with the lowest losses' : 'the least cost'} (cost ${f.cost.toFixed(1)})`
+          ? nothingAdded(f.cost)
+            ? `${name}: ${STATUS_SHORT[status]} with nothing added to the board`
+            : `${name}: ${STATUS_SHORT[status]} at ${tieOnCost ? 'about the least cost and with the lowest losses' : 'the least cost'} (cost ${f.cost.toFixed(1)})`
           : `${name}: no arrangement meets the target; this one comes closest (${STATUS_SHORT[status]})`;
     if (status === 'already-meets-target') return head;
-    const rest = others.map((o) => (o.status === status ? `${o.name} costs ${o.cost.toFixed(1)}` : `${o.name} ${STATUS_SHORT[o.status]}`));
+    const rest = others.map((o) =>
+      o.status !== status ? `${o.name} ${STATUS_SHORT[o.status]}` : nothingAdded(o.cost) ? `${o.name} also adds nothing` : `${o.name} costs ${o.cost.toFixed(1)}`,
+    );
     return rest.length ? `${head}; ${rest.join('; ')}` : head;
   },
+  /** What a compared arrangement makes notably worse, said beside the recommendation. */
+  balanceWorse: (name: string, recommended: boolean, changes: readonly { code: string; before: number; after: number }[]) =>
+    `${recommended ? 'note: the recommended' : 'the'} ${name} ${changes
+      .map((c) => (c.code === 'unbalance-worse' ? `raises |I2|/|I1| from ${f1(c.before)} % to ${f1(c.after)} %` : `raises the neutral current from ${f1(c.before)} A to ${f1(c.after)} A`))
+      .join(' and ')}`,
 };

@@ -20,6 +20,7 @@ import { warningText } from './correctionWording.js';
 import { beforeAfter, branchSizings, lineComparisons } from './_internal/branchReadings.js';
 import { checkRules, definedOnly, solveOptionsSchema } from './_internal/optionSchemas.js';
 import { parseOptions } from '../_internal/zodIssues.js';
+import { balanceWorsening } from './balanceWorsening.js';
 
 export interface VerifyCorrectionOptions {
   /** The equipment to add, e.g. `selection.equipment` or `sizing.equipment`. */
@@ -115,6 +116,8 @@ export function verifyCorrection(board: Board, options: VerifyCorrectionOptions)
   const resonanceOrder = ssc !== null && capacitorKvar > 0 ? Math.sqrt(ssc / (capacitorKvar * 1000)) : null;
   if (resonanceOrder !== null && WATCHED_ORDERS.some((h) => Math.abs(resonanceOrder - h) <= 0.1 * h)) warn('resonance', warningText.lowResonance(resonanceOrder), resonanceOrder, null);
   if (ssc === null && capacitorKvar > 0) warn('ideal-source', warningText.idealSource);
+  for (const w of balanceWorsening(before, after))
+    warn(w.code, w.code === 'unbalance-worse' ? warningText.unbalanceWorse(w.before, w.after, w.threshold) : warningText.neutralWorse(w.before, w.after), w.after, w.threshold);
 
   let lightLoad: LightLoadCheck | null = null;
   if (opts.lightLoad) {

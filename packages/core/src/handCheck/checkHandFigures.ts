@@ -74,7 +74,8 @@ interface Figures {
 
 const figuresOf = (r: BoardResult): Figures => ({
   currentA: new Map(r.phases.map((p) => [p.phase, p.current.magnitude])),
-  pf: new Map(r.phases.map((p) => [p.phase, p.pf])),
+  // A line with no current has no PF (null); hand methods take an idle line as unity.
+  pf: new Map(r.phases.map((p) => [p.phase, p.pf ?? 1])),
   neutralA: r.neutral && !r.board.neutralOpen ? r.neutral.current.magnitude : null,
   boardPf: r.powerFactor.vector.pf,
 });
@@ -178,7 +179,7 @@ export function checkHandFigures(board: Board, figures: unknown): HandCheckResul
     return {
       phase: p.phase,
       currentA: compared(mine?.currentA, tb.currentAfterA, p.current.magnitude),
-      pf: compared(mine?.pf, tb.pfAfter, p.pf),
+      pf: compared(mine?.pf, tb.pfAfter, p.pf ?? 1),
       senseTextbook: tb.senseAfter,
       senseSolved: p.sense,
     };

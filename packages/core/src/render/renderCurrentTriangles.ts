@@ -16,7 +16,8 @@ export interface LineCurrentParts {
   /** Q/|V|, A, + lagging. */
   readonly reactiveA: number;
   readonly magnitudeA: number;
-  readonly pf: number;
+  /** null for a line with no current. */
+  readonly pf: number | null;
   readonly sense: PhaseReading['sense'];
 }
 
@@ -37,7 +38,7 @@ export interface CurrentTriangleOptions {
 
 export const TRIANGLE_LAYOUT = { panelWidth: 210, top: 64, bottomText: 86, widthBudget: 150, heightBudget: 230 } as const;
 
-const pfText = (r: LineCurrentParts): string => `PF ${fixed(r.pf, 3)}${r.sense === 'unity' ? '' : r.sense === 'lagging' ? ' lag' : ' lead'}`;
+const pfText = (r: LineCurrentParts): string => r.pf === null ? 'no current' : `PF ${fixed(r.pf, 3)}${r.sense === 'unity' ? '' : r.sense === 'lagging' ? ' lag' : ' lead'}`;
 
 /**
  * Renders the current triangle of every line, before and after.

@@ -6,7 +6,7 @@ import type { Board } from '../../board/boardModel.js';
 import type { BoardResult } from '../../analysis/boardResult.js';
 import { capacitanceUF, inductanceMH } from '../capacitorOutput.js';
 import type { EquipmentGroup } from '../equipment.js';
-import type { BeforeAfter, BranchSizing, LineComparison } from '../correctionResult.js';
+import type { BeforeAfter, BranchSizing, LineComparison, PfBeforeAfter } from '../correctionResult.js';
 
 /**
  * A branch below this fraction of the whole set's kvar (or below 1e-9 kvar)
@@ -17,6 +17,9 @@ const EMPTY_FRACTION = 1e-6;
 const EMPTY_KVAR = 1e-9;
 
 export const beforeAfter = (before: number, after: number): BeforeAfter => ({ before, after, change: after - before });
+
+/** PF before and after; null on a side where the line carries no current (no PF). */
+export const pfBeforeAfter = (before: number | null, after: number | null): PfBeforeAfter => ({ before, after, change: before === null || after === null ? null : after - before });
 
 /**
  * Each branch of `groups` (added last to `board`, in order) as solved in `result`.
@@ -64,7 +67,7 @@ export function lineComparisons(before: BoardResult, after: BoardResult): LineCo
       currentA: beforeAfter(b.current.magnitude, a.current.magnitude),
       activeCurrentA: beforeAfter(part(b.kW, b.voltage.magnitude), part(a.kW, a.voltage.magnitude)),
       reactiveCurrentA: beforeAfter(part(b.kvar, b.voltage.magnitude), part(a.kvar, a.voltage.magnitude)),
-      pf: beforeAfter(b.pf, a.pf),
+      pf: pfBeforeAfter(b.pf, a.pf),
       sense: { before: b.sense, after: a.sense },
       voltageDropPercent: beforeAfter(b.voltageDropPercent, a.voltageDropPercent),
     };

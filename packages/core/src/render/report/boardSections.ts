@@ -13,7 +13,7 @@ const SYSTEM_WORDS: Readonly<Record<string, string>> = {
   'single-phase': 'single-phase 2-wire',
 };
 
-const pfWords = (pf: number, sense: string): string => `${fixed(pf, 3)}${sense === 'unity' ? '' : sense === 'lagging' ? ' lag' : ' lead'}`;
+const pfWords = (pf: number | null, sense: string): string => (pf === null ? '—' : `${fixed(pf, 3)}${sense === 'unity' ? '' : sense === 'lagging' ? ' lag' : ' lead'}`);
 const orDash = (x: number | null | undefined, digits: number): string => (x === null || x === undefined ? '—' : fixed(x, digits));
 
 function conductorWords(c: NonNullable<BoardSpec['feeder']>['line']): string {

@@ -16,6 +16,12 @@ const ARRANGEMENT_WORDS: Readonly<Record<string, string>> = {
   'balancing-compensator': 'balancing compensator (delta and star branches)',
 };
 
+/** Losses before → after, the change worded by its sign ("saves", "adds") so a negative saving never reads as one. */
+export function lossChangeWords(beforeKW: number, afterKW: number, reductionKW: number): string {
+  const change = Number(fixed(Math.abs(reductionKW), 3)) === 0 ? 'no change' : reductionKW > 0 ? `saves ${fixed(reductionKW, 3)} kW` : `adds ${fixed(-reductionKW, 3)} kW`;
+  return `${fixed(beforeKW, 3)} → ${fixed(afterKW, 3)} kW (${change})`;
+}
+
 function equipmentTable(report: CorrectionReport): ReportBlock | null {
   const sel = report.selection;
   if (!sel) return null;
@@ -59,7 +65,7 @@ export function correctionSection(report: CorrectionReport): ReportSection {
         ...(v.powerFactor.effective ? ([['Power factor, effective (IEEE 1459)', `${fixed(v.powerFactor.effective.before, 3)} → ${fixed(v.powerFactor.effective.after, 3)}`]] as [string, string][]) : []),
         ...(v.neutralCurrentA ? ([['Neutral current', `${fixed(v.neutralCurrentA.before, 1)} → ${fixed(v.neutralCurrentA.after, 1)} A`]] as [string, string][]) : []),
         ['Apparent power released at the source', `${fixed(v.releasedKVA.source, 2)} kVA`],
-        ['Loss reduction in source and feeder', `${fixed(v.lossReductionKW, 3)} kW`],
+        ['Losses in source and feeder', lossChangeWords(v.before.losses.totalKW, v.after.losses.totalKW, v.lossReductionKW)],
         ['Voltage rise from the capacitors', `${fixed(v.voltageRise.solvedPercent, 2)} % (limit ${fixed(v.voltageRise.limitPercent, 1)} %)`],
       ],
     },
@@ -85,8 +91,8 @@ export function correctionSection(report: CorrectionReport): ReportSection {
       fixed(l.currentA.after, 1),
       `${fixed(l.activeCurrentA.before, 1)} → ${fixed(l.activeCurrentA.after, 1)}`,
       `${fixed(l.reactiveCurrentA.before, 1)} → ${fixed(l.reactiveCurrentA.after, 1)}`,
-      `${fixed(l.pf.before, 3)} ${l.sense.before === 'leading' ? 'lead' : l.sense.before === 'lagging' ? 'lag' : ''}`.trim(),
-      `${fixed(l.pf.after, 3)} ${l.sense.after === 'leading' ? 'lead' : l.sense.after === 'lagging' ? 'lag' : ''}`.trim(),
+      `${l.pf.before === null ? '—' : fixed(l.pf.before, 3)} ${l.sense.before === 'leading' ? 'lead' : l.sense.before === 'lagging' ? 'lag' : ''}`.trim(),
+      `${l.pf.after === null ? '—' : fixed(l.pf.after, 3)} ${l.sense.after === 'leading' ? 'lead' : l.sense.after === 'lagging' ? 'lag' : ''}`.trim(),
     ]),
     note: 'Active and reactive parts of each line current, along and across its own line-to-neutral voltage (reactive above zero is lagging).',
   });

@@ -1,0 +1,40 @@
+/**
+ * Round-off is not data. The linear solve leaves currents of about 1e-15 of the
+ * board's largest current in conductors that carry nothing (a line with no load
+ * on it); read as data they gave "PF 0.200 lag" on an idle line. A conductor's
+ * current is its admittance times a voltage difference, so its round-off also
+ * scales with how stiff it is: about 1e-16 × nominal voltage × |Y|. Every current
+ * below the larger of the two floors is taken as exactly zero before anything is
+ * read from the solution.
+ */
+import { abs, add, ZERO, type ComplexValue } from '../complex.js';
+import type { NetworkSolution } from '../network/solveNetwork.js';
+
+/** Fraction of the board's largest current below which a current is zero: far above LU round-off (~1e-15), far below anything measurable. */
+export const NOISE_FLOOR_RELATIVE = 1e-9;
+
+/** Resolution of a conductor's current as a fraction of nominal voltage × its admittance (1000 × double round-off). */
+export const CONDUCTOR_RESOLUTION = 1e-13;
+
+/** 1/|Z| of the stiffest series conductor (source + line, neutral); 0 when every one is ideal (no round-off through it). */
+function stiffestAdmittance(board: NetworkSolution['board']): number {
+  const paths = [add(board.sourceImpedance, board.lineImpedance), board.neutralImpedance];
+  return Math.max(0, ...paths.map((z) => (abs(z) > 0 ? 1 / abs(z) : 0)));
+}
+
+/** The solution with every current under the noise floor set to zero. */
+export function withNoiseFloor(solution: NetworkSolution): NetworkSolution {
+  let largest = 0;
+  for (const i of solution.lineCurrents) largest = Math.max(largest, abs(i));
+  if (solution.neutralCurrent) largest = Math.max(largest, abs(solution.neutralCurrent));
+  for (const states of solution.branches) for (const s of states) largest = Math.max(largest, abs(s.current));
+  const board = solution.board;
+  const floor = Math.max(NOISE_FLOOR_RELATIVE * largest, CONDUCTOR_RESOLUTION * board.nominalLineToNeutralV * stiffestAdmittance(board));
+  const clean = (i: ComplexValue): ComplexValue => (abs(i) < floor ? ZERO : i);
+  return {
+    ...solution,
+    lineCurrents: solution.lineCurrents.map(clean),
+    neutralCurrent: solution.neutralCurrent === null ? null : clean(solution.neutralCurrent),
+    branches: solution.branches.map((states) => states.map((s) => ({ ...s, current: clean(s.current) }))),
+  };
+}

@@ -1,0 +1,77 @@
+/**
+ * How hard the supply works: the transformer's loading against its rating, and
+ * whether the solved operating point is one the supply can hold at all.
+ */
+import { abs, mul, sub } from '../complex.js';
+import type { NetworkSolution } from '../network/solveNetwork.js';
+import type { LineToLineReading, OperatingPoint, PhaseReading, TransformerReading } from './boardResult.js';
+
+export const SUPPLY_LIMITS = {
+  /**
+   * Board voltage (line-to-line; on a single-phase board, line-to-neutral) below which the
+   * operating point is a collapse, % of nominal. Half voltage is past the nose of the P–V curve
+   * of any supply feeding a resistive load (maximum power transfer sits at half the EMF).
+   */
+  collapsedVoltagePercent: 50,
+} as const;
+
+/**
+ * Loading of the supply transformer: kVA at its terminals (Σ|V||I| over the lines, V = EMF − Z·I)
+ * and the most loaded line against the rated current. Null without a transformer.
+ */
+export function readTransformer(solution: NetworkSolution): TransformerReading | null {
+  const { board } = solution;
+  if (board.transformerKVA === null) return null;
+  const ratedVA = board.transformerKVA * 1000;
+  // Rated line current: √3·V_LL·I three-phase; V_LL·I for a centre-tapped split-phase winding; V·I single-phase.
+  const ratedCurrentA =
+    board.system === 'single-phase'
+      ? ratedVA / board.nominalLineToNeutralV
+      : board.system === 'split-phase'
+        ? ratedVA / board.nominalLineToLineV!
+        : ratedVA / (Math.sqrt(3) * board.nominalLineToLineV!);
+  let kVA = 0;
+  let largest = 0;
+  solution.lineCurrents.forEach((i, k) => {
+    const terminal = sub(board.emf[k]!, mul(board.sourceImpedance, i));
+    kVA += (abs(terminal) * abs(i)) / 1000;
+    largest = Math.max(largest, abs(i));
+  });
+  return { ratedKVA: board.transformerKVA, kVA, ratedCurrentA, largestLineCurrentA: largest, loadingPercent: (100 * largest) / ratedCurrentA };
+}
+
+/**
+ * Whether the solved point is one the supply can hold. Collapsed when a board voltage (line-to-line, or
+ * line-to-neutral with the neutral intact) is below
+ * SUPPLY_LIMITS.collapsedVoltagePercent, or when (with the neutral intact) a constant-power or
+ * constant-current load had to be taken as an impedance below the solver's low-voltage threshold:
+ * the supply cannot deliver what those loads are rated to draw, and the figures are of a state no
+ * real board would settle in (motors stall, electronics drop out, protection trips).
+ */
+export function judgeOperatingPoint(
+  solution: NetworkSolution,
+  phases: readonly PhaseReading[],
+  lineToLine: readonly LineToLineReading[],
+  belowThreshold: readonly { readonly name: string; readonly pu: number }[],
+): OperatingPoint {
+  const { board } = solution;
+  const findings: string[] = [];
+  const limit = SUPPLY_LIMITS.collapsedVoltagePercent;
+  // Line-to-line voltages always; line-to-neutral ones too while the neutral is intact (a broken
+  // neutral moves them on purpose: that is the what-if, not the supply giving way).
+  const busPercents = [
+    ...lineToLine.map((l) => ({ label: `${l.pair}`, percent: l.voltagePercent })),
+    ...(board.hasNeutral && !board.neutralOpen ? phases.map((p) => ({ label: `${p.phase}-N`, percent: p.voltagePercent })) : []),
+  ];
+  const low = busPercents.filter((b) => b.percent < limit);
+  if (low.length)
+    findings.push(`the board voltage has collapsed to ${low.map((b) => `${b.label} ${b.percent.toFixed(1)} %`).join(', ')} of nominal (below ${limit} %)`);
+  if (!board.neutralOpen && belowThreshold.length) {
+    const named = belowThreshold.slice(0, 3).map((b) => `"${b.name}" at ${(b.pu * 100).toFixed(1)} %`);
+    const more = belowThreshold.length > 3 ? ` and ${belowThreshold.length - 3} more` : '';
+    findings.push(
+      `the supply cannot deliver the rated power of ${named.join(', ')}${more} of its nominal voltage: below ${(solution.lowVoltageThreshold * 100).toFixed(0)} % a constant-power or constant-current load is taken as an impedance, so the figures describe a state the real loads would not settle in`,
+    );
+  }
+  return { collapsed: findings.length > 0, findings };
+}

@@ -1,0 +1,76 @@
+/**
+ * Wording of `trivar correct` where a figure alone would mislead: an empty
+ * capacitance window, a comparison where nothing is added, a recommendation
+ * that makes the balance worse, and a negative loss saving in the HTML report.
+ */
+import { readFileSync } from 'node:fs';
+import { describe, expect, it } from 'vitest';
+import { buildBoardReport, compareCorrections, correctBoard, normaliseBoard, parseBoard, readBoardText, renderReportHtml, solveBoardModel } from '@trivar/core';
+import { ROOT, runTrivar } from './runTrivar.js';
+
+const boardOf = (file: string) => {
+  const spec = parseBoard(readBoardText(readFileSync(`${ROOT}${file}`, 'utf8')));
+  return { spec, board: normaliseBoard(spec) };
+};
+
+describe('correct report wording', () => {
+  it('an empty capacitance window is said in words with both bounds, never as "a – b" with a > b', () => {
+    const r = runTrivar(['correct', 'examples/hillside-workshop.yaml', '--arrangement', 'delta-bank']);
+    expect(r.stderr).toBe('');
+    const { board } = boardOf('examples/hillside-workshop.yaml');
+    const sel = correctBoard(board, { arrangement: 'delta-bank' }).selection!;
+    const empty = sel.selections.filter((s) => s.maximumCapacitanceUF !== null && s.maximumCapacitanceUF < s.minimumCapacitanceUF);
+    expect(empty.map((s) => s.branch)).toEqual(['B-C']);
+    for (const m of r.stdout.matchAll(/(\d+\.\d) – (\d+\.\d)/g)) expect(Number(m[1]), m[0]).toBeLessThanOrEqual(Number(m[2]));
+    const s = empty[0]!;
+    expect(r.stdout).toMatch(/B-C\s+none \(see below\)/);
+    expect(r.stdout.replace(/\s+/g, ' ')).toContain(
+      `B-C: no capacitance satisfies both tolerance ends — meeting the target at −5 % needs at least ${s.minimumCapacitanceUF.toFixed(1)} µF nominal, keeping every line within its bounds at +10 % allows at most ${s.maximumCapacitanceUF!.toFixed(1)} µF`,
+    );
+  });
+
+  it('where nothing is added no cost figure is quoted for it', () => {
+    const { board } = boardOf('examples/corner-bakery.yaml');
+    const c = compareCorrections(board, { target: { definition: 'vector' } });
+    const zero = c.outcomes.filter((o) => o.figures && o.figures.cost === 0);
+    expect(zero.length).toBeGreaterThanOrEqual(1);
+    expect(c.why).not.toMatch(/cost 0\.0|costs 0\.0/);
+    expect(c.why).toMatch(/with nothing added to the board|also adds nothing/);
+    // Something that is bought still shows its cost.
+    for (const o of c.outcomes.filter((o) => o.figures && o.figures.cost > 0 && o.report?.status === 'meets-target')) expect(c.why).toContain(`costs ${o.figures!.cost.toFixed(1)}`);
+  });
+
+  it('the recommendation says when an arrangement makes |I2|/|I1| notably worse (> 5 points), and so do the warnings', () => {
+    const { board } = boardOf('examples/hillside-workshop.yaml');
+    const c = compareCorrections(board, {});
+    expect(c.recommended).toBe('delta-bank');
+    const v = c.outcomes.find((o) => o.arrangement === 'delta-bank')!.report!.verification;
+    const [b, a] = [v.unbalance!.negativeSequenceCurrentPercent.before, v.unbalance!.negativeSequenceCurrentPercent.after];
+    expect(a - b).toBeGreaterThan(5);
+    expect(c.why).toContain(`the recommended delta bank raises |I2|/|I1| from ${b.toFixed(1)} % to ${a.toFixed(1)} %`);
+    const report = c.outcomes.find((o) => o.arrangement === 'delta-bank')!.report!;
+    expect(report.warnings.map((w) => w.code)).toContain('unbalance-worse');
+    // The compensator lowers both: no such note for it.
+    expect(c.why).not.toMatch(/compensator raises/);
+    const text = runTrivar(['correct', 'examples/hillside-workshop.yaml']).stdout.replace(/\s+/g, ' ');
+    expect(text).toContain(`Recommendation delta bank:`);
+    expect(text).toMatch(/available units; note: the recommended delta bank raises \|I2\|\/\|I1\| from 54\.5 % to 86\.2 %/);
+    expect(text).toContain('! the equipment makes the current unbalance worse: |I2|/|I1| rises from 54.5 % to 86.2 %');
+  });
+
+  it('a board whose bank does not change the balance notably gets no such note', () => {
+    const { board } = boardOf('examples/riverside-cold-store.yaml');
+    const r = correctBoard(board, { arrangement: 'star-bank' });
+    expect(r.warnings.filter((w) => w.code === 'unbalance-worse' || w.code === 'neutral-worse')).toEqual([]);
+  });
+
+  it('the HTML report words a negative loss saving as added losses', () => {
+    const { spec, board } = boardOf('examples/larkspur-court-flats.yaml');
+    const correction = correctBoard(board, { arrangement: 'star-bank' });
+    const v = correction.verification;
+    expect(v.lossReductionKW).toBeLessThan(0);
+    const html = renderReportHtml(buildBoardReport({ spec, result: solveBoardModel(board), correction }));
+    expect(html).not.toMatch(/-0\.\d{3} kW/);
+    expect(html).toContain(`${v.before.losses.totalKW.toFixed(3)} → ${v.after.losses.totalKW.toFixed(3)} kW (adds ${(-v.lossReductionKW).toFixed(3)} kW)`);
+  });
+});
