@@ -7,6 +7,7 @@ const blocks = [
   ['demo-output', ['solve', 'examples/corner-bakery.yaml']],
   ['correct-output', ['correct', 'examples/riverside-cold-store.yaml']],
   ['compare-output', ['correct', 'examples/cedar-falls-print-shop.yaml']],
+  ['installation-output', ['solve', 'examples/maple-court-riser.yaml']],
   ['harmonics-output', ['harmonics', 'examples/mill-street-offices.yaml']],
   ['correct-detuned-output', ['correct', 'examples/quayside-print-works.yaml']],
   ['check-output', ['check', 'examples/riverside-cold-store.yaml', 'examples/hand-figures/riverside-cold-store.yaml']],

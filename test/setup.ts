@@ -5,7 +5,14 @@
 import fc from 'fast-check';
 import { afterEach, beforeEach, vi } from 'vitest';
 
-const seed = process.env.TRIVAR_SEED ? Number(process.env.TRIVAR_SEED) : Date.now() ^ (Math.random() * 0x100000000);
+// Locally every run explores a new seed; CI replays one fixed seed so that a landing is judged on the
+// same cases it was tested with (a new counterexample found locally becomes a regression test).
+const CI_SEED = 20261202;
+const seed = process.env.TRIVAR_SEED
+  ? Number(process.env.TRIVAR_SEED)
+  : process.env.CI === 'true'
+    ? CI_SEED
+    : Date.now() ^ (Math.random() * 0x100000000);
 fc.configureGlobal({ seed, numRuns: Number(process.env.TRIVAR_RUNS ?? 100) });
 
 // Core must not write to the console: any test that makes it do so fails.

@@ -20,7 +20,7 @@ import { abs, add, conj, mul, neg, scale, sub, ZERO, isFiniteComplex, type Compl
 import { NumericalError } from '../../packages/core/src/errors.js';
 import { leastDeterminedUnknown, solveComplexSystem } from '../../packages/core/src/_internal/complexLu.js';
 import type { Board, LoadBranch, Terminal } from '../../packages/core/src/board/boardModel.js';
-import { buildTopology, REFERENCE, type NetworkTopology } from '../../packages/core/src/network/networkTopology.js';
+import { buildTopology, REFERENCE, type NetworkTopology } from './networkTopologyBefore.js';
 
 export interface SolveOptions {
   /**

@@ -17,6 +17,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { chromium, type Browser } from 'playwright-core';
 import { ROOT, runTrivar } from '../cli/runTrivar.js';
 import { readdirSync } from 'node:fs';
+import { isBoardExample } from '../support/boardExamples.js';
 
 function findChromium(): string | null {
   const candidates = [process.env.TRIVAR_CHROMIUM, '/usr/bin/chromium', '/usr/bin/chromium-browser'].filter((p): p is string => Boolean(p));
@@ -34,7 +35,7 @@ const ARTIFACTS = join(ROOT, 'test/browser/artifacts');
 const PROFILE_REPORT = 'quay-street-flats-with-profile';
 const examples = [
   ...readdirSync(join(ROOT, 'examples'))
-    .filter((f) => f.endsWith('.yaml'))
+    .filter(isBoardExample(join(ROOT, 'examples')))
     .map((f) => f.replace(/\.yaml$/, '')),
   PROFILE_REPORT,
 ];

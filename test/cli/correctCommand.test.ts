@@ -2,6 +2,7 @@ import { readdirSync, readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import { correctBoard, normaliseBoard, parseBoardText } from '@trivar/core';
 import { ROOT, runTrivar } from './runTrivar.js';
+import { isBoardExample } from '../support/boardExamples.js';
 
 const coldStore = 'examples/riverside-cold-store.yaml';
 const arrangements = ['star-bank', 'delta-bank', 'balancing-compensator'] as const;
@@ -60,7 +61,7 @@ describe('trivar correct (built binary)', () => {
     for (const line of r.stdout.split('\n')) expect(line.length).toBeLessThanOrEqual(100);
   });
 
-  it.each(readdirSync(`${ROOT}examples`).filter((f) => f.endsWith('.yaml')).map((f) => f.slice(0, -5)))(
+  it.each(readdirSync(`${ROOT}examples`).filter(isBoardExample(`${ROOT}examples`)).map((f) => f.slice(0, -5)))(
     'examples/%s.yaml: fits 100 columns, and a bank that is built comes with its controller settings',
     (name) => {
       const text = runTrivar(['correct', `examples/${name}.yaml`]);

@@ -64,6 +64,21 @@ describe('correct report wording', () => {
     expect(r.warnings.filter((w) => w.code === 'unbalance-worse' || w.code === 'neutral-worse')).toEqual([]);
   });
 
+  it('a compensator whose unit-built capacitors miss beside exact reactors says why, with the net kvar it lost', () => {
+    const { board } = boardOf('examples/hillside-workshop.yaml');
+    const r = correctBoard(board, { arrangement: 'balancing-compensator' });
+    expect(r.status).toBe('misses-target-with-available-units');
+    const sized = r.sizing.arrangement === 'balancing-compensator' ? r.sizing.ideal.branches : [];
+    const cap = sized.filter((b) => b.element === 'capacitor').reduce((s, b) => s + b.kvarAtAppliedV, 0);
+    const reactor = -sized.filter((b) => b.element === 'reactor').reduce((s, b) => s + b.kvarAtAppliedV, 0);
+    const built = r.selection!.deliveredKvar;
+    expect(built).toBeLessThan(cap);
+    expect(reactor).toBeGreaterThan(0);
+    const reason = r.reasons.find((x) => x.startsWith('beside reactors'));
+    expect(reason).toContain(`${built.toFixed(2)} kvar built against ${cap.toFixed(2)} kvar sized`);
+    expect(reason).toContain(`falls from ${(cap - reactor).toFixed(2)} to ${(built - reactor).toFixed(2)} kvar`);
+  });
+
   it('the HTML report words a negative loss saving as added losses', () => {
     const { spec, board } = boardOf('examples/larkspur-court-flats.yaml');
     const correction = correctBoard(board, { arrangement: 'star-bank' });

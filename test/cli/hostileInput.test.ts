@@ -165,7 +165,7 @@ const CASES: Case[] = [
   // 11. schema and cross-field problems in one pass
   {
     name: 'a schema error and a duplicate name, listed together',
-    args: () => ['solve', file('two-rounds.yaml', `supply: { system: three-phase-4wire, voltage: { lineToLine: 400 }, frequencyHz: 45 }\nloads:\n  - { name: oven, connection: A-N, kW: 2, pf: 1 }\n  - { name: oven, connection: B-N, kW: 2 }\n`)],
+    args: () => ['solve', file('two-rounds.yaml', `supply: { system: three-phase-4wire, voltage: { lineToLine: 400 }, frequencyHz: 45 }\nloads:\n  - { name: oven, connection: A-N, kW: 2, pf: 1 }\n  - { name: oven, connection: B-N, kVA: 2 }\n`)],
     code: 3,
     says: [/supply\.frequencyHz/, /loads\[1\]\.name/, /loads\[1\]: expected exactly one rating/],
   },
@@ -220,6 +220,15 @@ const CASES: Case[] = [
     says: [],
     prints: [/draws no active power/],
     neverPrints: [/exports active power/],
+  },
+  // 10. a target just below 1 is not shown as 1.000
+  {
+    name: 'a target of 0.9999999 reads as itself',
+    args: () => ['correct', 'examples/riverside-cold-store.yaml', '--pf', '0.9999999'],
+    code: 5,
+    says: [],
+    prints: [/PF ≥ 0\.9999999/],
+    neverPrints: [/PF ≥ 1\.000/],
   },
 ];
 

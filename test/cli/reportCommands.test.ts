@@ -5,8 +5,9 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { ROOT, runTrivar } from './runTrivar.js';
+import { isBoardExample } from '../support/boardExamples.js';
 
-const exampleFiles = readdirSync(join(ROOT, 'examples')).filter((f) => f.endsWith('.yaml'));
+const exampleFiles = readdirSync(join(ROOT, 'examples')).filter(isBoardExample(join(ROOT, 'examples')));
 const scratch = () => mkdtempSync(join(tmpdir(), 'trivar-report-'));
 
 describe('trivar report', () => {

@@ -8,6 +8,7 @@ import { describe, expect, it } from 'vitest';
 import { readBoardText, solveBoard, type BoardSpec } from '@trivar/core';
 import { renderSolveReport } from '../../packages/cli/src/format/solveReport.js';
 import { ROOT } from './runTrivar.js';
+import { isBoardExample } from '../support/boardExamples.js';
 
 const width = (line: string) => [...line].length;
 const widest = (text: string) => text.split('\n').reduce((a, l) => (width(l) > width(a) ? l : a), '');
@@ -28,7 +29,7 @@ const flats: BoardSpec = {
 };
 
 describe('trivar solve report layout', () => {
-  const examples = readdirSync(`${ROOT}examples`).filter((f) => f.endsWith('.yaml'));
+  const examples = readdirSync(`${ROOT}examples`).filter(isBoardExample(`${ROOT}examples`));
   it.each(examples)('examples/%s fits 100 columns, with the broken-neutral study too', (file) => {
     const result = solveBoard(readBoardText(readFileSync(`${ROOT}examples/${file}`, 'utf8')), { openNeutral: true });
     expect(width(widest(renderSolveReport(result)))).toBeLessThanOrEqual(100);

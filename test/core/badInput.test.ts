@@ -60,7 +60,12 @@ const cases: [string, unknown, string, string][] = [
     delete b.loads[0].kW;
     delete b.loads[0].pf;
   }), 'rating', 'loads[0]'],
-  ['kW without pf or kvar', edit((b) => delete b.loads[0].pf), 'rating', 'loads[0]'],
+  // kW alone is accepted (pf 1, stated: see 'a kW-only load' below); kVA and A still need a pf.
+  ['kVA without pf', edit((b) => {
+    delete b.loads[0].pf;
+    delete b.loads[0].kW;
+    b.loads[0].kVA = 6;
+  }), 'rating', 'loads[0]'],
   ['ZIP fractions not summing to 1', edit((b) => (b.loads[0].zip = { z: 0.5, i: 0.2, p: 0.2 })), 'out_of_range', 'loads[0].zip'],
   ['model and zip together', edit((b) => {
     b.loads[0].model = 'constant-power';

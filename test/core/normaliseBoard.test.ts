@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { normaliseBoard, parseBoard } from '@trivar/core';
+import { normaliseBoard, parseBoard, solveBoard } from '@trivar/core';
 
 const base = { system: 'three-phase-4wire', voltage: { lineToLine: 400 }, frequencyHz: 50 } as const;
 
@@ -54,5 +54,16 @@ describe('normaliseBoard', () => {
     // A floating star of voltage-dependent elements is taken as its equivalent delta, same rating.
     expect(tw.loads[1]!.branches.map((b) => `${b.from}-${b.to}`)).toEqual(['A-B', 'B-C', 'C-A']);
     expect(tw.loads[1]!.branches[0]!.sNominal.re).toBeCloseTo(1000, 9);
+  });
+  it('a kW-only load is resistive: pf 1, Q = 0, and the result says it was assumed', () => {
+    const spec = { supply: base, loads: [{ name: 'kettle', connection: 'A-N' as const, kW: 2 }, { name: 'motor', connection: 'B-N' as const, kW: 2, pf: 0.8 }] };
+    const board = normaliseBoard(parseBoard(spec));
+    expect(board.loads[0]!.branches[0]!.sNominal).toEqual({ re: 2000, im: 0 });
+    expect(board.loads[0]!.pfAssumed).toBe(true);
+    expect(board.loads[1]!.pfAssumed).toBeUndefined();
+    const result = solveBoard(spec);
+    expect(result.loads[0]!.pfAssumed).toBe(true);
+    expect(result.loads[0]!.pf).toBe(1);
+    expect('pfAssumed' in result.loads[1]!).toBe(false);
   });
 });

@@ -20,6 +20,11 @@ describe('README', () => {
     const shown = block.replace(/^\s*```text\n/, '').replace(/```\s*$/, '');
     expect(shown.trimEnd()).toBe(runTrivar(['correct', 'examples/cedar-falls-print-shop.yaml']).stdout.trimEnd());
   });
+  it('installation output block matches `trivar solve examples/maple-court-riser.yaml`', () => {
+    const block = readme.split('<!-- installation-output:start -->')[1]!.split('<!-- installation-output:end -->')[0]!;
+    const shown = block.replace(/^\s*```text\n/, '').replace(/```\s*$/, '');
+    expect(shown.trimEnd()).toBe(runTrivar(['solve', 'examples/maple-court-riser.yaml']).stdout.trimEnd());
+  });
   it('harmonics output block matches `trivar harmonics examples/mill-street-offices.yaml`', () => {
     const block = readme.split('<!-- harmonics-output:start -->')[1]!.split('<!-- harmonics-output:end -->')[0]!;
     const shown = block.replace(/^\s*```text\n/, '').replace(/```\s*$/, '');

@@ -16,7 +16,7 @@ function featuresOf(spec: BoardSpec): string[] {
   const tags = [
     `system:${s.system}`,
     `source:${s.transformer ? 'transformer' : s.impedance ? 'impedance' : 'ideal'}`,
-    `line:${spec.feeder?.line ? (spec.feeder.line.lengthM ? 'per-length' : 'direct') : 'zero'}`,
+    `line:${spec.feeder?.line ? ('lengthM' in spec.feeder.line ? 'per-length' : 'direct') : 'zero'}`,
     `neutral:${spec.feeder?.neutral ? (spec.feeder.neutral.lengthM ? 'per-length' : 'direct') : 'zero'}`,
     `voltage:${s.voltage.lineToLine ? 'LL' : 'LN'}`,
     `hz:${s.frequencyHz}`,

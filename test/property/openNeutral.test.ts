@@ -6,7 +6,7 @@
  */
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { followNeutralBreak, normaliseBoard, solveBoard, solveNetwork, solveNetworkByNewton } from '@trivar/core';
+import { type BoardSpec, followNeutralBreak, normaliseBoard, solveBoard, solveNetwork, solveNetworkByNewton } from '@trivar/core';
 import { cAbs, cScale, cSub } from '../support/complexMath.js';
 import { boardSpecArb } from './arbitraries/boardSpec.js';
 import { assertCurrentLawHolds, assertElementLawsHold, assertLoadModelsHold } from './laws.js';
@@ -61,5 +61,28 @@ describe('open-neutral continuation', () => {
       }),
       { numRuns: 80 },
     );
+  });
+});
+
+describe('open-neutral continuation, regression', () => {
+  it('a lone light line-to-neutral load on a heavy line-to-line board still reaches open (seed 1542195499)', () => {
+    // The sweep once ended at 1e3 × the board's impedance, where the 0.15 kW A-N load
+    // still held about 5 % of nominal: the final jump to open was taken for a collapse.
+    const spec: BoardSpec = {
+      name: 'heavy B-C capacitive load, one light A-N load',
+      supply: { system: 'three-phase-4wire', voltage: { lineToNeutral: 230 }, frequencyHz: 50, impedance: { r: 0.103, x: 0 } },
+      feeder: { line: { lengthM: 5, rOhmPerKm: 18.5, xOhmPerKm: 0 } },
+      loads: [
+        { name: 'L1', connection: 'B-C', kW: 7.4, pf: 0.5, sense: 'leading', model: 'constant-impedance' },
+        { name: 'L2', connection: 'C-A', kW: 0.15, pf: 0.5, model: 'constant-impedance' },
+        { name: 'L3', connection: 'A-N', kW: 0.15, pf: 0.5, model: 'constant-impedance' },
+      ],
+    };
+    const path = followNeutralBreak(normaliseBoard(spec));
+    expect(path.reachedOpen).toBe(true);
+    const study = solveBoard(spec, { openNeutral: true }).openNeutral!;
+    expect(study.reachedFromIntact).toBe(true);
+    // With the neutral open the A-N load has no return path: it sees no voltage.
+    expect(study.loads[0]!.voltage).toBeLessThan(1e-6);
   });
 });

@@ -24,12 +24,14 @@ import {
 import { parseSvg, readPhasors, readScales, type DrawnPhasor } from './svgReading.js';
 import { boardSpecArb } from '../property/arbitraries/boardSpec.js';
 import { FigureLog } from '../support/figureLog.js';
+import { fileURLToPath } from 'node:url';
+import { isBoardExample } from '../support/boardExamples.js';
 
 const figures = new FigureLog(new URL('./.diagram-geometry.json', import.meta.url));
 afterAll(() => figures.write());
 
 const EXAMPLES = new URL('../../examples/', import.meta.url);
-const exampleFiles = readdirSync(EXAMPLES).filter((f) => f.endsWith('.yaml'));
+const exampleFiles = readdirSync(EXAMPLES).filter(isBoardExample(fileURLToPath(EXAMPLES)));
 const loadExample = (f: string) => parseBoard(readBoardText(readFileSync(new URL(f, EXAMPLES), 'utf8')));
 
 /**

@@ -8,9 +8,11 @@ import fc from 'fast-check';
 import { correctBoard, normaliseBoard, parseBoard, readBoardText, renderPhasorDiagram, renderSequenceDiagram, solveBoard, solveBoardModel, type BoardResult } from '@trivar/core';
 import { boardSpecArb } from '../property/arbitraries/boardSpec.js';
 import { parseSvg, readLabels } from './svgReading.js';
+import { fileURLToPath } from 'node:url';
+import { isBoardExample } from '../support/boardExamples.js';
 
 const EXAMPLES = new URL('../../examples/', import.meta.url);
-const exampleFiles = readdirSync(EXAMPLES).filter((f) => f.endsWith('.yaml'));
+const exampleFiles = readdirSync(EXAMPLES).filter(isBoardExample(fileURLToPath(EXAMPLES)));
 
 /** Same estimate as the renderer (0.6 em per glyph, 1.25 em tall); subscripts count as full glyphs. */
 const box = (l: { text: string; x: number; y: number; fontSize: number }) => ({ x: l.x, y: l.y - 0.8 * 1.25 * l.fontSize, w: 0.6 * l.fontSize * l.text.length, h: 1.25 * l.fontSize });

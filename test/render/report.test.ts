@@ -3,9 +3,11 @@ import { readFileSync, readdirSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import { parseSvg } from './svgReading.js';
 import { renderPhasorDiagram, buildBoardReport, correctBoard, normaliseBoard, parseBoard, readBoardText, renderReportHtml, renderReportMarkdown, solveBoardModel, type ReportSection } from '@trivar/core';
+import { fileURLToPath } from 'node:url';
+import { isBoardExample } from '../support/boardExamples.js';
 
 const EXAMPLES = new URL('../../examples/', import.meta.url);
-const exampleFiles = readdirSync(EXAMPLES).filter((f) => f.endsWith('.yaml'));
+const exampleFiles = readdirSync(EXAMPLES).filter(isBoardExample(fileURLToPath(EXAMPLES)));
 
 function reportOf(file: string) {
   const spec = parseBoard(readBoardText(readFileSync(new URL(file, EXAMPLES), 'utf8')));

@@ -20,6 +20,7 @@ Examples:
   trivar solve examples/corner-bakery.yaml
   trivar solve examples/corner-bakery.yaml --json > result.json
   trivar solve examples/hillside-workshop.yaml --open-neutral
+  trivar solve examples/maple-court-riser.yaml --board "Floor 4"
   cat board.yaml | trivar solve -
 
 Exit codes:
@@ -170,13 +171,15 @@ export function createProgram(io: CliIo, outcome: RunOutcome = { exitCode: EXIT.
 
   program
     .command('solve')
-    .description('solve a board file: voltages, line and neutral currents, unbalance, power factor, losses')
-    .argument('<board>', 'board file (YAML or JSON), or - for standard input')
+    .description('solve a board or installation file: voltages, line and neutral currents, unbalance, power factor, losses')
+    .argument('<board>', 'board or installation file (YAML or JSON), or - for standard input')
     .option('--json', 'print the full result as JSON instead of the report')
     .option('--open-neutral', 'also show what each line-to-neutral load would see if the neutral conductor broke')
+    .option('--board <name>', 'installation files: also print the full figures of this board (repeatable)', (v: string, prev: string[] = []) => [...prev, v])
+    .option('--all-boards', 'installation files: print the full figures of every board')
     .addOption(maxInputOption())
     .addHelpText('after', SOLVE_EXAMPLES)
-    .action(async (board: string, opts: { json?: boolean; openNeutral?: boolean }) => {
+    .action(async (board: string, opts: { json?: boolean; openNeutral?: boolean; board?: string[]; allBoards?: boolean; maxInputMb?: number }) => {
       await runSolve(board, opts, io);
     });
 

@@ -31,6 +31,23 @@ export { acceptedConnections } from './board/boardRules.js';
 export type { Board, BoardLoad, LoadBranch, Terminal, ZipFractions, PhaseId } from './board/boardModel.js';
 export { normaliseBoard } from './board/normaliseBoard.js';
 
+// Installations (boards in a radial tree) and the cable library
+export type { Installation, SubBoard, SubBoardFeeder, InstallationPlace } from './board/boardModel.js';
+export type { InstallationSpec, InstallationBoardSpec } from './board/installationSchema.js';
+export { installationSchema } from './board/installationSchema.js';
+export type { InstallationValidation } from './board/validateInstallation.js';
+export { validateInstallation, parseInstallation, isInstallationInput } from './board/validateInstallation.js';
+export { normaliseInstallation } from './board/normaliseInstallation.js';
+export type { FeederSpec, PerPhaseConductorSpec, WindingSpec } from './board/boardSchema.js';
+export type { ConductorMaterial, ConductorSize, ConductorResistance } from './board/cableLibrary.js';
+export { conductorResistance, DEFAULT_CABLE_REACTANCE_OHM_PER_KM, DEFAULT_CONDUCTOR_TEMPERATURE_C } from './board/cableLibrary.js';
+export { installationOf, boardOfInstallation } from './network/installationModel.js';
+export type { InstallationSolution, CompiledInstallation } from './network/solveNetwork.js';
+export { compileInstallation, solveCompiledInstallation, solveInstallationNetwork } from './network/solveNetwork.js';
+export type * from './analysis/installationResult.js';
+export type { SolveInstallationOptions } from './solveInstallation.js';
+export { solveInstallation, solveInstallationModel } from './solveInstallation.js';
+
 // Solving
 export type { SolveOptions, NetworkSolution, BranchState } from './network/solveNetwork.js';
 export { solveNetwork, terminalVoltage } from './network/solveNetwork.js';

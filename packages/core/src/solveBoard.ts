@@ -27,7 +27,7 @@ export function solveBoardModel(board: Board, options: SolveBoardOptions = {}): 
 }
 
 /** No NaN or infinity may reach a caller (JSON would silently turn them into null). */
-function assertFiniteResult<T>(result: T): T {
+export function assertFiniteResult<T>(result: T): T {
   // First a plain walk; the path is only spelled out when something is wrong
   // (building path strings for every number was most of the check's cost).
   const allFinite = (value: unknown): boolean => {

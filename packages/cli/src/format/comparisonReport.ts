@@ -1,4 +1,5 @@
 /** CorrectionComparison → the side-by-side report of `trivar correct` without an arrangement (fits 100 columns). */
+import { boundFigure } from './correctionReport.js';
 import type { ArrangementOutcome, CorrectionComparison } from '@trivar/core';
 import { fixed, renderTable, section } from './textTable.js';
 import { headerLines } from './solveReport.js';
@@ -40,7 +41,7 @@ export function renderComparisonReport(c: CorrectionComparison): string {
   const parts: string[] = [];
   if (first) {
     parts.push(headerLines(first.verification.before).slice(0, 2).join('\n'));
-    parts.push(wrapText(`target: ${first.target.statement}; PF ≥ ${fixed(first.target.pf, 3)}`, '', '  '));
+    parts.push(wrapText(`target: ${first.target.statement}; PF ≥ ${boundFigure(first.target.pf)}`, '', '  '));
   }
   parts.push(
     section('Arrangements compared (each built from units and verified by re-solving the board)') +

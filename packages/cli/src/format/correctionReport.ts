@@ -25,6 +25,13 @@ const indentLines = (lines: readonly string[]) => lines.map((l) => wrapText(l, '
 
 
 /** A PF to 3 decimals; a line with no current has none. */
+/** A bound to 3 decimals, or as many more as it takes to read as itself: 0.9999999 is not "1.000". */
+export const boundFigure = (x: number): string => {
+  let d = 3;
+  while (d < 10 && Math.abs(Number(x.toFixed(d)) - x) > 1e-12) d++;
+  return x.toFixed(d);
+};
+
 const pfFigure = (pf: number | null): string => (pf === null ? 'no current' : fixed(pf, 3));
 
 function elementText(b: BranchSizing): string {
@@ -119,7 +126,7 @@ function branchTable(sel: BankSelection): string {
 }
 
 function controllerLines(c: ControllerSettings): string[] {
-  const band = `PF ≥ ${fixed(c.targetBand.minPf, 3)} lagging${c.targetBand.maxPf === null ? (c.targetBand.leadingAllowed ? ', leading allowed' : ' up to 1.000') : ` up to ${fixed(c.targetBand.maxPf, 3)} lagging`}`;
+  const band = `PF ≥ ${boundFigure(c.targetBand.minPf)} lagging${c.targetBand.maxPf === null ? (c.targetBand.leadingAllowed ? ', leading allowed' : ' up to 1.000') : ` up to ${fixed(c.targetBand.maxPf, 3)} lagging`}`;
   return [
     `outputs: ${c.outputsUsed} of ${c.outputs} used · ${c.measurement === 'one-line' ? 'equal steps: an ordinary controller reading one CT' : 'steps serve single lines: the controller must measure every line (one CT per line)'}`,
     `CT ${fixed(c.ctPrimaryA, 0)}/${fixed(c.ctSecondaryA, 0)} A${c.ctChosen ? ' (chosen: next standard rating above 1.25 × the largest line current; give controller.ctPrimaryA if yours differs)' : ''}`,
@@ -260,7 +267,7 @@ const FLOATING_STAR_NOTE =
 
 export function renderCorrectionReport(r: CorrectionReport): string {
   const v = r.verification;
-  const target = `${r.target.statement}; PF ≥ ${fixed(r.target.pf, 3)}${r.target.leading === 'never' ? ', never leading' : ', leading allowed'}${r.target.maxLaggingPf === null ? '' : `, at most ${fixed(r.target.maxLaggingPf, 3)} lagging`}`;
+  const target = `${r.target.statement}; PF ≥ ${boundFigure(r.target.pf)}${r.target.leading === 'never' ? ', never leading' : ', leading allowed'}${r.target.maxLaggingPf === null ? '' : `, at most ${fixed(r.target.maxLaggingPf, 3)} lagging`}`;
   const parts = [
     headerLines(v.before).slice(0, 2).join('\n'),
     wrapText(`correction: ${ARRANGEMENT_WORDS[r.arrangement] ?? r.arrangement}`, '', '  '),

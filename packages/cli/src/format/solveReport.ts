@@ -104,7 +104,7 @@ function loadTable(r: BoardResult): string {
       fixed(l.currentA, 1),
       fixed(l.kW, 2),
       fixed(l.kvar, 2),
-      pfCell(l),
+      `${pfCell(l)}${l.pfAssumed ? ' *' : ''}`,
     ];
   });
   const notes = ['model: P constant power, I constant current, Z constant impedance, ZIP a mix · V: the worst branch voltage.'];
@@ -113,6 +113,7 @@ function loadTable(r: BoardResult): string {
     notes.push(
       `${asDelta.join(', ')}: a floating star of constant-power or constant-current elements has no unique star-point position, so it is solved as its equivalent delta (its rating shared by the three line-to-line pairs; V is line-to-line). Rate it in ohms or as constant-impedance to see its star point.`,
     );
+  if (r.loads.some((l) => l.pfAssumed)) notes.push('*: pf not given in the file, taken as 1 (a resistive load).');
   for (const l of r.loads) {
     const sentence = exportSentence(`"${l.name}"`, l, 'generates');
     if (sentence) notes.push(sentence);

@@ -43,6 +43,14 @@ function valueAt(root: unknown, path: readonly PropertyKey[]): unknown {
 export function inputIssuesFromZod(issues: readonly core.$ZodIssue[], root: unknown, prefix: readonly PropertyKey[] = []): InputIssue[] {
   return issues.flatMap((issue) => {
     const path = [...prefix, ...issue.path];
+    // An object that fits none of a union's forms but has the shape of one of them (its
+    // problems are all inside, e.g. a negative resistance): report that form's problems at
+    // their own paths. A value of the wrong kind altogether gets "one of … or …" below.
+    if (issue.code === 'invalid_union' && issue.errors.length > 0) {
+      const inside = issue.errors.filter((branch) => branch.length > 0 && branch.every((i) => i.path.length > 0));
+      const closest = inside.sort((a, b) => a.length - b.length)[0];
+      if (closest) return inputIssuesFromZod(closest, valueAt(root, issue.path), path);
+    }
     if (issue.code === 'unrecognized_keys')
       return issue.keys.map((key) => inputIssue('unknown_key', formatPath([...path, key]), 'only the documented keys (see the board JSON Schema)', key));
     // A refinement may report a value of its own in params.received (a spectrum's total, not the list).

@@ -76,13 +76,23 @@ function readNeutral(solution: NetworkSolution, neutralBar: ComplexValue | null)
   };
 }
 
-/** Losses: line conductors carry the line currents, the neutral conductor its own current. */
+/**
+ * Losses in what feeds this board: its feeder's line conductors carry the line currents,
+ * the neutral conductor its own current; on a main board also the source windings
+ * (per phase when they differ; none at an open delta's corner) and the star-point
+ * return that models a zero-sequence impedance, which carries the sum of the line currents.
+ */
 function readLosses(solution: NetworkSolution): LossReading {
   const { board } = solution;
-  const lineSq = solution.lineCurrents.reduce((s, i) => s + absSquared(i), 0);
+  let source = ZERO;
+  let feeder = ZERO;
+  solution.lineCurrents.forEach((i, k) => {
+    const sq = absSquared(i);
+    if (board.openDeltaCorner !== board.phases[k]) source = add(source, scale(board.sourceImpedances?.[k] ?? board.sourceImpedance, sq));
+    feeder = add(feeder, scale(board.lineImpedances?.[k] ?? board.lineImpedance, sq));
+  });
+  if (board.sourceStarImpedance && !board.openDeltaCorner) source = add(source, scale(board.sourceStarImpedance, absSquared(sum(solution.lineCurrents))));
   const neutralSq = solution.neutralCurrent ? absSquared(solution.neutralCurrent) : 0;
-  const source = scale(board.sourceImpedance, lineSq);
-  const feeder = scale(board.lineImpedance, lineSq);
   const neutral = board.neutralOpen ? ZERO : scale(board.neutralImpedance, neutralSq);
   const total = add(add(source, feeder), neutral);
   return { sourceKW: source.re / 1000, lineFeederKW: feeder.re / 1000, neutralKW: neutral.re / 1000, totalKW: total.re / 1000, totalKvar: total.im / 1000 };
@@ -126,7 +136,8 @@ export function analyseSolution(solved: NetworkSolution): BoardResult {
   const neutral = readNeutral(solution, voltages.neutralBar);
   const loads = readLoads(solution, voltages.bus);
   const loadTotal = sum(solution.branches.flat().map((s) => mul(s.voltage, conj(s.current))));
-  const sourcePower = sum(board.emf.map((e, k) => mul(e, conj(solution.lineCurrents[k]!))));
+  // A sub-board's supply is what its feeder takes from the board feeding it.
+  const sourcePower = solution.suppliedPower ?? sum(board.emf.map((e, k) => mul(e, conj(solution.lineCurrents[k]!))));
   const seq = threePhase ? readSequences(solution, voltages.phase, phases, lineToLine) : null;
   const powerFactor = boardPowerDefinitions({
     phasePowers: phases.map((p) => ({ re: p.kW * 1000, im: p.kvar * 1000 })),

@@ -79,6 +79,8 @@ export interface LoadReading extends PowerReading {
   /** Floating star point: its voltage to the centroid of the line voltages, V. */
   readonly starPointShift: Phasor | null;
   readonly energised: boolean;
+  /** Present when the board file gave kW without pf: pf 1 (resistive) was taken. */
+  readonly pfAssumed?: true;
 }
 
 export interface UnbalanceReading {
@@ -220,7 +222,11 @@ export interface BoardResult {
   readonly loads: readonly LoadReading[];
   /** Sum of the loads. */
   readonly totals: PowerReading;
-  /** Delivered by the source EMFs (= totals + losses). */
+  /**
+   * Delivered by the source EMFs (= totals + losses). On a sub-board of an installation:
+   * what its feeder takes from the board feeding it (= totals + its feeder's losses +
+   * what it passes on to the boards it feeds).
+   */
   readonly source: { readonly kW: number; readonly kvar: number };
   readonly losses: LossReading;
   readonly sequences: { readonly voltage: SequenceSet<Phasor>; readonly current: SequenceSet<Phasor> } | null;

@@ -42,9 +42,15 @@ export interface NeutralBreakPath {
   readonly steps: number;
 }
 
-/** Span of the fault resistance, as powers of ten of the board's load impedance. */
+/**
+ * Span of the fault resistance, as powers of ten: from 1e-3 of the board's load
+ * impedance to 1e3 of its lightest branch's impedance. The end must be far above
+ * every branch, not just the board as a whole: a lone small line-to-neutral load
+ * still holds its node near the neutral through a resistance the size of the
+ * board's impedance, and the last jump to open would then look like a collapse.
+ */
 const FIRST_DECADE = -3;
-const LAST_DECADE = 3;
+const DECADES_PAST_LIGHTEST = 3;
 /** Step sizes in decades of fault resistance: start, largest, and the floor below which the state counts as lost. */
 const STEP = { start: 0.25, largest: 1, floor: 1e-3 } as const;
 /** A step may move no node by more than this fraction of nominal: larger means it jumped to another state. */
@@ -60,11 +66,28 @@ export function withNeutralFault(board: Board, ohms: number | null): Board {
   return { ...board, neutralOpen: false, neutralImpedance: add(board.neutralImpedance, complex(ohms, 0)) };
 }
 
-/** Impedance of the board's load at nominal voltage, ohm: the scale the fault resistance is swept over. */
+/**
+ * Impedance of the load the neutral serves at nominal voltage, ohm: the scale the fault resistance
+ * is swept over. Only branches to the neutral bar count — a large line-to-line load beside a small
+ * line-to-neutral one would otherwise end the sweep while the bar is still far from where the open
+ * neutral puts it, and the last step to open would look like a jump to another state.
+ */
 function loadImpedanceScale(board: Board): number {
   let va = 0;
-  for (const load of board.loads) for (const b of load.branches) va += abs(b.sNominal);
-  return (board.nominalLineToNeutralV ** 2) / Math.max(va, 1);
+  let all = 0;
+  for (const load of board.loads)
+    for (const b of load.branches) {
+      all += abs(b.sNominal);
+      if (b.from === 'N' || b.to === 'N') va += abs(b.sNominal);
+    }
+  return (board.nominalLineToNeutralV ** 2) / Math.max(va > 0 ? va : all, 1);
+}
+
+/** Largest impedance at nominal line-to-neutral voltage among the board's load branches, ohm. */
+function lightestBranchImpedance(board: Board): number {
+  let smallest = Infinity;
+  for (const load of board.loads) for (const b of load.branches) if (abs(b.sNominal) > 0) smallest = Math.min(smallest, abs(b.sNominal));
+  return Number.isFinite(smallest) ? (board.nominalLineToNeutralV ** 2) / smallest : 0;
 }
 
 function largestMove(a: NetworkSolution, b: NetworkSolution, vBase: number): number {
@@ -86,6 +109,7 @@ export function followNeutralBreak(board: Board, options: FollowNeutralBreakOpti
   const stepNewton = { lowVoltageThreshold, maxIterations: ITERATIONS_PER_STEP, tolerance: STEP_TOLERANCE };
   const vBase = board.nominalLineToNeutralV;
   const zScale = loadImpedanceScale(board);
+  const LAST_DECADE = Math.max(3, Math.log10(lightestBranchImpedance(board) / zScale) + DECADES_PAST_LIGHTEST);
   // The intact board (a negligible fault, so the neutral bar is a node of its own as in every later step).
   let decade = FIRST_DECADE;
   let state = solveNetwork(withNeutralFault(board, zScale * 10 ** decade), { lowVoltageThreshold });

@@ -46,6 +46,7 @@ export function readLoads(solution: NetworkSolution, busVoltages: readonly Compl
       currentA: Math.max(...board.phases.map((phase) => abs(lineCurrentOfLoad(load.branches, states, phase)))),
       starPointShift: starV ? toPhasor(sub(starV, centroid)) : null,
       energised: states.some((s) => s.energised),
+      ...(load.pfAssumed ? { pfAssumed: true as const } : {}),
     };
   });
 }

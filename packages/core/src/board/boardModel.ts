@@ -41,6 +41,8 @@ export interface BoardLoad {
   readonly branches: readonly LoadBranch[];
   /** Where the load came from: the board file, or equipment a study added. */
   readonly origin: 'board' | 'added';
+  /** True when the file gave kW without pf, so pf 1 (a resistive load) was taken. */
+  readonly pfAssumed?: boolean;
 }
 
 export interface Board {
@@ -70,4 +72,67 @@ export interface Board {
   readonly transformerKVA: number | null;
   readonly loads: readonly BoardLoad[];
   readonly studies: { readonly openNeutral: boolean };
+  /**
+   * Unequal source impedances, ohm, one per phase in the order of `phases` (a bank of
+   * unequal single-phase units, or the two windings of an open delta); when set, the
+   * solve uses these and `sourceImpedance` is their mean, for summaries.
+   */
+  readonly sourceImpedances?: readonly ComplexValue[];
+  /**
+   * Impedance between the source star point and its earthed neutral terminal, ohm:
+   * (Z0 − Z1)/3, which with Z1 in each phase gives the source the zero-sequence
+   * impedance Z0 (a symmetric source's phase matrix, written as a common return).
+   */
+  readonly sourceStarImpedance?: ComplexValue;
+  /**
+   * Open-delta supply: the phase at the corner the two windings share (3-wire only).
+   * Each other phase has one winding to this corner; `emf` are still the open-circuit
+   * phase voltages (only their differences drive the windings).
+   */
+  readonly openDeltaCorner?: PhaseId;
+  /** Unequal feeder impedances per line conductor, ohm, in the order of `phases`; `lineImpedance` is then their mean. */
+  readonly lineImpedances?: readonly ComplexValue[];
+  /** Set when the board is one board of an installation: a solve covers the whole installation. */
+  readonly installation?: InstallationPlace;
+}
+
+/** Where a board sits in an installation (see installationModel.ts). */
+export interface InstallationPlace {
+  readonly installation: Installation;
+  /** 0 for the main board, i + 1 for `subBoards[i]`. */
+  readonly boardIndex: number;
+}
+
+/** A feeder from a parent board to a sub-board: impedance per conductor. */
+export interface SubBoardFeeder {
+  /** Per line conductor, ohm, in the order of the installation's phases. */
+  readonly lineImpedances: readonly ComplexValue[];
+  readonly neutralImpedance: ComplexValue;
+  /** True when this feeder's neutral conductor is broken (what-if). */
+  readonly neutralOpen: boolean;
+  readonly lineRatingA: number | null;
+  readonly neutralRatingA: number | null;
+  /** The cable in words when it came from the cable library (e.g. `4×95 mm² Cu, 40 m`). */
+  readonly description: string | null;
+}
+
+export interface SubBoard {
+  readonly name: string;
+  /** Board number of the board feeding it: 0 = main board, i + 1 = `subBoards[i]`. */
+  readonly fedFrom: number;
+  readonly feeder: SubBoardFeeder;
+  readonly loads: readonly BoardLoad[];
+}
+
+/**
+ * A radial installation: the main board (which carries the supply and the service
+ * feeder, exactly as a single board does) and the sub-boards fed from it or from
+ * each other. A single board is the installation with no sub-boards.
+ */
+export interface Installation {
+  readonly name: string;
+  readonly main: Board;
+  readonly subBoards: readonly SubBoard[];
+  /** The service cable in words when sized from the cable library. */
+  readonly serviceFeederDescription?: string | null;
 }

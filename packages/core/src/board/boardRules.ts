@@ -5,11 +5,13 @@
  */
 import { inputIssue, type InputIssue } from '../errors.js';
 import type { BoardSpec, ConductorSpec, FeederSpec, LoadSpec, SupplySpec, SystemKind } from './boardSchema.js';
-import { phasesOf, systemHasNeutral } from './systemTopology.js';
+import { isThreePhase, phasesOf, systemHasNeutral } from './systemTopology.js';
+import { conductorResistance, tabulatedSizes } from './cableLibrary.js';
+import { isPerPhaseLine, lengthOf, materialOf, sizeOf } from './feederModel.js';
 
 type Rule = (board: BoardSpec) => InputIssue[];
 
-const RATING_FORMS = 'exactly one rating: kW with pf, kVA with pf, A with pf, kW with kvar, or ohms';
+const RATING_FORMS = 'exactly one rating: kW (pf 1 when not given), kW with pf, kVA with pf, A with pf, kW with kvar, or ohms';
 
 function ruleVoltageGiven(board: BoardSpec): InputIssue[] {
   const { lineToLine, lineToNeutral } = board.supply.voltage;
@@ -43,35 +45,102 @@ function ruleEmfPhases(board: BoardSpec): InputIssue[] {
   return issues;
 }
 
-function conductorIssues(conductor: ConductorSpec | undefined, path: string): InputIssue[] {
+function conductorIssues(conductor: ConductorSpec | undefined, path: string, feeder: FeederSpec | undefined): InputIssue[] {
   if (!conductor) return [];
   const direct = conductor.r !== undefined || conductor.x !== undefined;
-  const perLength = conductor.lengthM !== undefined || conductor.rOhmPerKm !== undefined || conductor.xOhmPerKm !== undefined;
-  if (direct && perLength)
-    return [inputIssue('conflict', path, 'either r and x, or lengthM with rOhmPerKm and xOhmPerKm, not both', 'both')];
-  if (perLength) {
-    const issues: InputIssue[] = [];
-    if (conductor.lengthM === undefined) issues.push(inputIssue('missing', `${path}.lengthM`, 'the route length in metres'));
-    if (conductor.rOhmPerKm === undefined) issues.push(inputIssue('missing', `${path}.rOhmPerKm`, 'resistance per km, ohm/km'));
-    return issues;
+  const size = sizeOf(conductor);
+  const sizes = [conductor.mm2, conductor.awg, conductor.kcmil].filter((v) => v !== undefined).length;
+  const perLength = conductor.rOhmPerKm !== undefined || conductor.xOhmPerKm !== undefined || size !== null;
+  const ownLength = conductor.lengthM !== undefined || conductor.lengthFt !== undefined;
+  const issues: InputIssue[] = [];
+  if (direct && (perLength || ownLength))
+    return [inputIssue('conflict', path, 'either r and x, or a length with rOhmPerKm or a size (mm2, awg, kcmil), not both', 'both')];
+  if (conductor.lengthM !== undefined && conductor.lengthFt !== undefined)
+    issues.push(inputIssue('conflict', path, 'one length: lengthM or lengthFt', 'both'));
+  if (sizes > 1) issues.push(inputIssue('conflict', path, 'one size: mm2, awg or kcmil', 'more than one'));
+  if (size && conductor.rOhmPerKm !== undefined) issues.push(inputIssue('conflict', path, 'either a size from the cable library or rOhmPerKm, not both', 'both'));
+  if (!size && (conductor.material !== undefined || conductor.temperatureC !== undefined))
+    issues.push(inputIssue('not_applicable', conductor.material !== undefined ? `${path}.material` : `${path}.temperatureC`, 'material and temperatureC only with a size (mm2, awg or kcmil)', conductor.material ?? conductor.temperatureC));
+  if (size && sizes === 1 && !conductorResistance(size, materialOf(conductor))) {
+    const field = 'mm2' in size ? 'mm2' : 'awg' in size ? 'awg' : 'kcmil';
+    const metal = materialOf(conductor);
+    issues.push(inputIssue('unknown_size', `${path}.${field}`, `a ${metal} size in ${'mm2' in size ? 'IEC 60228' : 'NEC Chapter 9 Table 8'}: ${tabulatedSizes(size, metal).map((k) => k.replace(' kcmil', '')).join(', ')}`, Object.values(size)[0]));
   }
-  return [];
+  if (perLength || ownLength) {
+    if (lengthOf(conductor, feeder) === null) issues.push(inputIssue('missing', `${path}.lengthM`, 'the route length (lengthM or lengthFt, here or on the feeder)'));
+    if (!size && conductor.rOhmPerKm === undefined) issues.push(inputIssue('missing', `${path}.rOhmPerKm`, 'resistance per km (ohm/km), or a size (mm2, awg or kcmil)'));
+  }
+  return issues;
+}
+
+function lineConductorIssues(feeder: FeederSpec | undefined, path: string, system: BoardSpec['supply']['system']): InputIssue[] {
+  const line = feeder?.line;
+  if (!line) return [];
+  if (!isPerPhaseLine(line)) return conductorIssues(line, path, feeder);
+  const phases = phasesOf(system);
+  const issues: InputIssue[] = [];
+  for (const p of ['A', 'B', 'C'] as const) {
+    const belongs = phases.includes(p);
+    if (belongs && !line[p]) issues.push(inputIssue('missing', `${path}.${p}`, `a conductor for every phase of a ${system} supply`));
+    if (!belongs && line[p]) issues.push(inputIssue('not_applicable', `${path}.${p}`, `only phases ${phases.join(', ')} on a ${system} supply`, p));
+    if (belongs && line[p]) issues.push(...conductorIssues(line[p], `${path}.${p}`, feeder));
+  }
+  return issues;
+}
+
+/** Checks a feeder; `path` is where it sits (`feeder`, `boards[2].feeder`). */
+export function feederIssues(feeder: FeederSpec | undefined, path: string, system: BoardSpec['supply']['system']): InputIssue[] {
+  const issues = [...lineConductorIssues(feeder, `${path}.line`, system), ...conductorIssues(feeder?.neutral, `${path}.neutral`, feeder)];
+  if (feeder?.lengthM !== undefined && feeder.lengthFt !== undefined) issues.push(inputIssue('conflict', path, 'one length: lengthM or lengthFt', 'both'));
+  if (feeder?.neutral && !systemHasNeutral(system))
+    issues.push(inputIssue('not_applicable', `${path}.neutral`, 'no neutral conductor on a three-phase-3wire supply', 'a neutral'));
+  return issues;
 }
 
 function ruleFeeder(board: BoardSpec): InputIssue[] {
-  const issues = [
-    ...conductorIssues(board.feeder?.line, 'feeder.line'),
-    ...conductorIssues(board.feeder?.neutral, 'feeder.neutral'),
-  ];
-  if (board.feeder?.neutral && !systemHasNeutral(board.supply.system))
-    issues.push(inputIssue('not_applicable', 'feeder.neutral', 'no neutral conductor on a three-phase-3wire supply', 'a neutral'));
+  return feederIssues(board.feeder, 'feeder', board.supply.system);
+}
+
+/** The ways to give a source impedance are exclusive; each has systems it suits. */
+function ruleUnequalSource(board: BoardSpec): InputIssue[] {
+  const { impedance, transformer, bank, openDelta, zeroSequence, system } = board.supply;
+  const issues: InputIssue[] = [];
+  const given = [impedance && 'impedance', transformer && 'transformer', bank && 'bank', openDelta && 'openDelta'].filter((x): x is string => !!x);
+  if (given.length > 1 && !(given.length === 2 && impedance && transformer)) issues.push(inputIssue('conflict', 'supply', 'one source description: impedance, transformer, bank or openDelta', given.join(' + ')));
+  const phases = phasesOf(system);
+  const perPhase = (value: Partial<Record<'A' | 'B' | 'C', unknown>>, path: string, what: string) => {
+    for (const p of ['A', 'B', 'C'] as const) {
+      const belongs = phases.includes(p);
+      if (belongs && value[p] === undefined) issues.push(inputIssue('missing', `${path}.${p}`, `${what} for every phase of a ${system} supply`));
+      if (!belongs && value[p] !== undefined) issues.push(inputIssue('not_applicable', `${path}.${p}`, `only phases ${phases.join(', ')} on a ${system} supply`, p));
+    }
+  };
+  if (impedance && !('r' in impedance)) perPhase(impedance, 'supply.impedance', 'an impedance');
+  if (bank) {
+    if (!isThreePhase(system)) issues.push(inputIssue('not_applicable', 'supply.bank', 'a bank of single-phase units only on a three-phase supply', system));
+    else perPhase(bank, 'supply.bank', 'a unit');
+  }
+  if (openDelta) {
+    const count = (['A-B', 'B-C', 'C-A'] as const).filter((k) => openDelta[k] !== undefined).length;
+    if (system !== 'three-phase-3wire') issues.push(inputIssue('not_applicable', 'supply.openDelta', 'an open delta only on a three-phase-3wire supply', system));
+    else if (count !== 2) issues.push(inputIssue('out_of_range', 'supply.openDelta', 'exactly two units (an open delta has two of the three windings)', `${count} units`));
+  }
+  if (zeroSequence) {
+    if (system !== 'three-phase-4wire') issues.push(inputIssue('not_applicable', 'supply.zeroSequence', 'a zero-sequence impedance only on a three-phase-4wire supply (no zero-sequence current flows otherwise)', system));
+    else if (!(transformer || (impedance && 'r' in impedance)) || bank || openDelta)
+      issues.push(inputIssue('missing', 'supply.impedance', 'the positive-sequence impedance with zeroSequence: one impedance { r, x } or a transformer'));
+    else {
+      const z1 = transformer ? 1 : Math.hypot((impedance as { r: number }).r, (impedance as { x: number }).x);
+      if (z1 === 0) issues.push(inputIssue('out_of_range', 'supply.impedance', 'a non-zero positive-sequence impedance with zeroSequence', 'r = 0, x = 0'));
+    }
+  }
   return issues;
 }
 
 function ratingIssues(load: LoadSpec, path: string): InputIssue[] {
   const has = (v: unknown) => v !== undefined;
   const forms = [
-    has(load.kW) && has(load.pf) && !has(load.kvar),
+    has(load.kW) && !has(load.kvar) && !has(load.kVA) && !has(load.A),
     has(load.kVA) && has(load.pf),
     has(load.A) && has(load.pf),
     has(load.kW) && has(load.kvar) && !has(load.pf),
@@ -79,7 +148,8 @@ function ratingIssues(load: LoadSpec, path: string): InputIssue[] {
   ].filter(Boolean).length;
   const given = (['kW', 'kvar', 'kVA', 'A', 'pf', 'ohms'] as const).filter((k) => has(load[k]));
   const issues: InputIssue[] = [];
-  if (forms !== 1 || given.length !== (has(load.ohms) ? 1 : 2))
+  const kWAlone = has(load.kW) && given.length === 1;
+  if (forms !== 1 || (!kWAlone && given.length !== (has(load.ohms) ? 1 : 2)))
     issues.push(inputIssue('rating', path, RATING_FORMS, given.length ? given.join(' + ') : 'no rating'));
   if (load.sense !== undefined && load.pf === undefined)
     issues.push(inputIssue('not_applicable', `${path}.sense`, 'sense only together with pf', load.sense));
@@ -194,11 +264,11 @@ export function partialBoardIssues(parts: BoardParts): InputIssue[] {
   const issues: InputIssue[] = [];
   if (parts.supply) {
     const board = { supply: parts.supply, feeder: parts.feeder ?? undefined, loads: [] } as unknown as BoardSpec;
-    issues.push(...ruleVoltageGiven(board), ...ruleSourceImpedance(board), ...ruleEmfPhases(board));
+    issues.push(...ruleVoltageGiven(board), ...ruleSourceImpedance(board), ...ruleUnequalSource(board), ...ruleEmfPhases(board));
     if (parts.feeder !== null) issues.push(...ruleFeeder(board));
   }
   issues.push(...loadIssues(parts.loads, parts.supply?.system ?? null));
   return issues;
 }
 
-export const BOARD_RULES: readonly Rule[] = [ruleVoltageGiven, ruleSourceImpedance, ruleEmfPhases, ruleFeeder, ruleLoads, ruleHarmonicFields];
+export const BOARD_RULES: readonly Rule[] = [ruleVoltageGiven, ruleSourceImpedance, ruleUnequalSource, ruleEmfPhases, ruleFeeder, ruleLoads, ruleHarmonicFields];

@@ -46,6 +46,11 @@ export const PHYSICAL_RANGES = {
   supplyReactanceOhms: { min: -1000, max: 1000, unit: 'ohm' },
   ohmsPerKm: { min: 0, max: 10_000, unit: 'ohm/km' },
   lengthM: { min: 0, max: 100_000, unit: 'm', above: true },
+  lengthFt: { min: 0, max: 330_000, unit: 'ft', above: true },
+  /** Cable library sizes (the tables hold the sizes; these only keep out nonsense). */
+  conductorMm2: { min: 0, max: 5000, unit: 'mm²', above: true },
+  conductorKcmil: { min: 0, max: 5000, unit: 'kcmil', above: true },
+  conductorTemperatureC: { min: -50, max: 250, unit: '°C' },
   ratingA: { min: 0, max: 100_000, unit: 'A', above: true },
   /** Loads: 100 MW is far beyond any one LV board. */
   loadKW: { min: -100_000, max: 100_000, unit: 'kW' },
@@ -90,11 +95,30 @@ const conductorSchema = z
     r: within(PHYSICAL_RANGES.supplyOhms).optional().describe('resistance, ohm'),
     x: within(PHYSICAL_RANGES.supplyOhms).optional().describe('reactance, ohm'),
     lengthM: within(PHYSICAL_RANGES.lengthM).optional().describe('route length, m'),
+    lengthFt: within(PHYSICAL_RANGES.lengthFt).optional().describe('route length, ft'),
     rOhmPerKm: within(PHYSICAL_RANGES.ohmsPerKm).optional().describe('resistance per km of conductor, ohm/km'),
-    xOhmPerKm: within(PHYSICAL_RANGES.ohmsPerKm).optional().describe('reactance per km of conductor, ohm/km'),
+    xOhmPerKm: within(PHYSICAL_RANGES.ohmsPerKm).optional().describe('reactance per km of conductor, ohm/km (default 0.08 for a library size)'),
+    mm2: within(PHYSICAL_RANGES.conductorMm2).optional().describe('metric size, mm² (resistance from IEC 60228 class 2)'),
+    awg: z.string().max(12).optional().describe('AWG size, e.g. "12" or "4/0" (resistance from NEC Chapter 9 Table 8)'),
+    kcmil: within(PHYSICAL_RANGES.conductorKcmil).optional().describe('size in kcmil, e.g. 250 (NEC Chapter 9 Table 8)'),
+    material: z.enum(['copper', 'aluminium', 'aluminum']).optional().describe('conductor metal for a library size; default copper'),
+    temperatureC: within(PHYSICAL_RANGES.conductorTemperatureC).optional().describe('conductor operating temperature, °C (default 70 for mm², 75 for AWG/kcmil)'),
+    parallel: z.int().min(1).max(12).optional().describe('conductors in parallel (2 = a doubled neutral); default 1'),
     ratingA: within(PHYSICAL_RANGES.ratingA).optional().describe('current rating of this conductor, A'),
   })
-  .describe('a conductor: give r and x directly, or lengthM with rOhmPerKm and xOhmPerKm');
+  .describe('a conductor: r and x directly; or a length with rOhmPerKm, or with a size (mm2, awg or kcmil)');
+
+const perPhaseConductorSchema = z
+  .strictObject({ A: conductorSchema.optional(), B: conductorSchema.optional(), C: conductorSchema.optional() })
+  .describe('a different conductor for each phase');
+
+const perPhaseImpedanceSchema = z
+  .strictObject({ A: impedanceSchema.optional(), B: impedanceSchema.optional(), C: impedanceSchema.optional() })
+  .describe('a different source impedance for each phase, ohm');
+
+const windingSchema = z
+  .union([transformerSchema, impedanceSchema])
+  .describe('one single-phase unit: its rating (kVA, impedancePercent, xOverR) or its impedance (r, x) referred to the secondary');
 
 export const supplySchema = z.strictObject({
   system: z.enum(SYSTEMS).describe('how the board is fed'),
@@ -110,16 +134,29 @@ export const supplySchema = z.strictObject({
     .strictObject({ A: phaseEmfSchema.optional(), B: phaseEmfSchema.optional(), C: phaseEmfSchema.optional() })
     .optional()
     .describe('unbalanced source EMFs per phase; default balanced at nominal voltage'),
-  impedance: impedanceSchema.optional().describe('source impedance per phase, ohm'),
+  impedance: z.union([impedanceSchema, perPhaseImpedanceSchema]).optional().describe('source impedance per phase, ohm: one value for all, or one per phase'),
   transformer: transformerSchema.optional(),
+  zeroSequence: impedanceSchema
+    .optional()
+    .describe('zero-sequence impedance Z0 of the source, ohm (4-wire star sources; impedance or transformer gives Z1)'),
+  bank: z
+    .strictObject({ A: windingSchema.optional(), B: windingSchema.optional(), C: windingSchema.optional() })
+    .optional()
+    .describe('a bank of single-phase transformers with star-connected secondaries, one unit per phase (units may differ)'),
+  openDelta: z
+    .strictObject({ 'A-B': windingSchema.optional(), 'B-C': windingSchema.optional(), 'C-A': windingSchema.optional() })
+    .optional()
+    .describe('an open-delta supply (three-phase-3wire): exactly two single-phase units, between the phases named'),
 });
 
 export const feederSchema = z
   .strictObject({
-    line: conductorSchema.optional().describe('each line (phase) conductor between source and board'),
-    neutral: conductorSchema.optional().describe('the neutral conductor between source and board'),
+    line: z.union([conductorSchema, perPhaseConductorSchema]).optional().describe('each line (phase) conductor: one for all, or one per phase'),
+    neutral: conductorSchema.optional().describe('the neutral conductor'),
+    lengthM: within(PHYSICAL_RANGES.lengthM).optional().describe('route length for every conductor that does not give its own, m'),
+    lengthFt: within(PHYSICAL_RANGES.lengthFt).optional().describe('route length for every conductor that does not give its own, ft'),
   })
-  .describe('the cable or busway from source to board');
+  .describe('the cable or busway that feeds the board');
 
 export const loadSchema = z.strictObject({
   name: z.string().min(1).describe('circuit name'),
@@ -176,7 +213,9 @@ export type BoardSpec = z.infer<typeof boardSchema>;
 export type LoadSpec = z.infer<typeof loadSchema>;
 export type SupplySpec = z.infer<typeof supplySchema>;
 export type ConductorSpec = z.infer<typeof conductorSchema>;
+export type PerPhaseConductorSpec = z.infer<typeof perPhaseConductorSchema>;
 export type FeederSpec = z.infer<typeof feederSchema>;
+export type WindingSpec = z.infer<typeof windingSchema>;
 export type ImpedanceSpec = z.infer<typeof impedanceSchema>;
 export type SystemKind = (typeof SYSTEMS)[number];
 export type ConnectionSpec = (typeof CONNECTIONS)[number];

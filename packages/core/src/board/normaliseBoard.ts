@@ -2,8 +2,9 @@
  * BoardSpec (what the user wrote) → Board (SI units, complex impedances,
  * branches). Assumes a validated spec; see `validateBoard`.
  */
-import { complex, degToRad, inverse, polar, scale, conj, type ComplexValue } from '../complex.js';
-import type { BoardSpec, ConductorSpec, LoadSpec } from './boardSchema.js';
+import { add, complex, degToRad, inverse, polar, scale, sub, conj, type ComplexValue } from '../complex.js';
+import type { BoardSpec, LoadSpec, WindingSpec } from './boardSchema.js';
+import { feederModel } from './feederModel.js';
 import type { Board, BoardLoad, LoadBranch, Terminal, ZipFractions } from './boardModel.js';
 import { phasesOf, systemHasNeutral, type PhaseId } from './systemTopology.js';
 
@@ -29,28 +30,59 @@ function nominalVoltages(spec: BoardSpec): { ln: number; ll: number | null } {
   return { ln: ll / ratio, ll };
 }
 
-function conductorImpedance(c: ConductorSpec | undefined): ComplexValue {
-  if (!c) return complex(0, 0);
-  if (c.lengthM !== undefined) return complex(((c.rOhmPerKm ?? 0) * c.lengthM) / 1000, ((c.xOhmPerKm ?? 0) * c.lengthM) / 1000);
-  return complex(c.r ?? 0, c.x ?? 0);
+/** Impedance of a transformer (or one single-phase unit) referred to `v` volts: |Z| = u_k·V²/S, split by X/R. */
+function transformerImpedance(unit: { kVA: number; impedancePercent: number; xOverR: number }, v: number): ComplexValue {
+  const z = ((unit.impedancePercent / 100) * v * v) / (unit.kVA * 1000);
+  const r = z / Math.sqrt(1 + unit.xOverR ** 2);
+  return complex(r, r * unit.xOverR);
 }
 
+const windingImpedance = (w: WindingSpec, v: number): ComplexValue => ('kVA' in w ? transformerImpedance(w, v) : complex(w.r, w.x));
+
 /**
- * Source impedance per line. From a transformer: |Z| = u_k·V²/S referred to the
+ * Source impedance per line (the equal short form). From a transformer: |Z| = u_k·V²/S referred to the
  * board voltage, split by X/R. On a split-phase supply each half-winding is
  * taken as half the full-winding impedance (a simplification; real centre-tapped
  * units have a higher line-to-neutral impedance — common practice, no source).
  */
 function sourceImpedance(spec: BoardSpec, ln: number, ll: number | null): ComplexValue {
   const { impedance, transformer, system } = spec.supply;
-  if (impedance) return complex(impedance.r, impedance.x);
+  if (impedance && 'r' in impedance) return complex(impedance.r, impedance.x);
   if (!transformer) return complex(0, 0);
   const v = system === 'single-phase' ? ln : (ll ?? ln);
-  let z = ((transformer.impedancePercent / 100) * v * v) / (transformer.kVA * 1000);
-  if (system === 'split-phase') z /= 2;
-  const r = z / Math.sqrt(1 + transformer.xOverR ** 2);
-  return complex(r, r * transformer.xOverR);
+  const z = transformerImpedance(transformer, v);
+  return system === 'split-phase' ? scale(z, 0.5) : z;
 }
+
+/** The unequal-source fields of a board: per-phase impedances, open-delta corner, star-point return. */
+function unequalSource(spec: BoardSpec, phases: readonly PhaseId[], ln: number, ll: number | null): Partial<Pick<Board, 'sourceImpedances' | 'openDeltaCorner' | 'sourceStarImpedance'>> {
+  const { impedance, bank, openDelta, zeroSequence } = spec.supply;
+  const out: { -readonly [K in 'sourceImpedances' | 'openDeltaCorner' | 'sourceStarImpedance']?: Board[K] } = {};
+  if (impedance && !('r' in impedance)) out.sourceImpedances = phases.map((p) => (impedance[p] ? complex(impedance[p].r, impedance[p].x) : complex(0, 0)));
+  if (bank) out.sourceImpedances = phases.map((p) => (bank[p] ? windingImpedance(bank[p], ln) : complex(0, 0)));
+  if (openDelta) {
+    const pairs = (['A-B', 'B-C', 'C-A'] as const).filter((k) => openDelta[k] !== undefined);
+    const [first, second] = pairs.map((k) => k.split('-') as [PhaseId, PhaseId]);
+    const corner = first!.find((p) => second!.includes(p))!;
+    out.openDeltaCorner = corner;
+    out.sourceImpedances = phases.map((p) => {
+      if (p === corner) return complex(0, 0);
+      const key = pairs.find((k) => k.includes(p))!;
+      return windingImpedance(openDelta[key]!, ll ?? ln);
+    });
+  }
+  if (zeroSequence) {
+    const z1 = sourceImpedance(spec, ln, ll);
+    const z0 = complex(zeroSequence.r, zeroSequence.x);
+    const zn = scale(sub(z0, z1), 1 / 3);
+    // Z0 equal to Z1 up to round-off leaves a star-point return of ~1e-19 ohm, which would
+    // stamp an admittance of ~1e18 and wreck the solve; below 1e-9 of |Z1| it is no impedance at all.
+    if (Math.hypot(zn.re, zn.im) > 1e-9 * Math.max(Math.hypot(z1.re, z1.im), Math.hypot(z0.re, z0.im))) out.sourceStarImpedance = zn;
+  }
+  return out;
+}
+
+const mean = (zs: readonly ComplexValue[]) => scale(zs.reduce(add, complex(0, 0)), 1 / zs.length);
 
 /** Total complex power of a load at nominal voltage, VA, from its rating. */
 function nominalPower(load: LoadSpec, branchVoltage: number, branchCount: number, lineCurrentToVA: number): ComplexValue {
@@ -82,7 +114,8 @@ function loadBranches(load: LoadSpec, index: number, spec: BoardSpec, ln: number
   ): BoardLoad => {
     const share = scale(total, 1 / pairs.length);
     const branches: LoadBranch[] = pairs.map(([from, to]) => ({ from, to, sNominal: share, vNominal, zip }));
-    return { name: load.name, connection: load.connection, model, branches, origin: 'board' };
+    const pfAssumed = load.kW !== undefined && load.pf === undefined && load.kvar === undefined;
+    return { name: load.name, connection: load.connection, model, branches, origin: 'board', ...(pfAssumed ? { pfAssumed } : {}) };
   };
   const c = load.connection;
   if (c === 'ABC-star') {
@@ -113,6 +146,10 @@ export function normaliseBoard(spec: BoardSpec): Board {
     const given = spec.supply.emf?.[p];
     return given ? polar(given.V, degToRad(given.angleDeg)) : polar(ln, degToRad(angles[k]!));
   });
+  const unequal = unequalSource(spec, phases, ln, ll);
+  const feeder = feederModel(spec.feeder, phases);
+  const first = feeder.lineImpedances[0]!;
+  const unequalLines = feeder.lineImpedances.some((z) => z.re !== first.re || z.im !== first.im);
   return {
     name: spec.name ?? 'board',
     system,
@@ -123,14 +160,16 @@ export function normaliseBoard(spec: BoardSpec): Board {
     nominalLineToNeutralV: ln,
     nominalLineToLineV: ll,
     emf,
-    sourceImpedance: sourceImpedance(spec, ln, ll),
-    lineImpedance: conductorImpedance(spec.feeder?.line),
-    neutralImpedance: conductorImpedance(spec.feeder?.neutral),
+    sourceImpedance: unequal.sourceImpedances ? mean(unequal.sourceImpedances.filter((_, k) => phases[k] !== unequal.openDeltaCorner)) : sourceImpedance(spec, ln, ll),
+    lineImpedance: mean(feeder.lineImpedances),
+    neutralImpedance: feeder.neutralImpedance,
     neutralOpen: false,
-    lineRatingA: spec.feeder?.line?.ratingA ?? null,
-    neutralRatingA: spec.feeder?.neutral?.ratingA ?? null,
+    lineRatingA: feeder.lineRatingA,
+    neutralRatingA: feeder.neutralRatingA,
     transformerKVA: spec.supply.impedance ? null : (spec.supply.transformer?.kVA ?? null),
     loads: spec.loads.map((load, i) => loadBranches(load, i, spec, ln, ll)),
     studies: { openNeutral: spec.studies?.openNeutral ?? false },
+    ...unequal,
+    ...(unequalLines ? { lineImpedances: feeder.lineImpedances } : {}),
   };
 }

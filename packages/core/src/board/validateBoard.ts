@@ -2,7 +2,7 @@
  * Validation of board files: schema first (zod), then the cross-field rules.
  * `validateBoard` returns a result; `parseBoard` throws an `InputError`.
  */
-import { InputError, type InputIssue } from '../errors.js';
+import { InputError, inputIssue, type InputIssue } from '../errors.js';
 import { allInputIssues } from '../_internal/zodIssues.js';
 import { boardSchema, feederSchema, loadSchema, supplySchema, type BoardSpec, type LoadSpec } from './boardSchema.js';
 import { BOARD_RULES, partialBoardIssues, type BoardParts } from './boardRules.js';
@@ -17,6 +17,12 @@ export type BoardValidation = { ok: true; board: BoardSpec } | { ok: false; issu
  * @returns `{ ok: true, board }` or `{ ok: false, issues }` with every problem found.
  */
 export function validateBoard(input: unknown): BoardValidation {
+  // An installation file handed to a one-board function: say so, not "unknown key boards".
+  if (input !== null && typeof input === 'object' && 'boards' in input && !('loads' in input))
+    return {
+      ok: false,
+      issues: [inputIssue('installation', 'boards', 'a single board (supply, feeder, loads); this is an installation file (boards:), which `trivar solve` and solveInstallation read', 'an installation')],
+    };
   const parsed = boardSchema.safeParse(input);
   const shapeIssues = allInputIssues(parsed.success ? [] : parsed.error.issues, input);
   if (parsed.success && shapeIssues.length === 0) {

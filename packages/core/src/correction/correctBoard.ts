@@ -143,6 +143,13 @@ export function correctBoard(board: Board, spec: unknown): CorrectionReport {
   } else if (!verification.check.met || (balance && !balance.met)) {
     status = 'misses-target-with-available-units';
     reasons.push(infeasibleReason.unitsMissTarget([...verification.check.shortfalls, ...(balance?.shortfalls ?? [])]));
+    // Beside reactors kept at their continuous values the capacitors may not pass their requirement
+    // (the balance would tip), so units round them down and the small net compensation shrinks.
+    const reactorKvar = sized.branches.reduce((sum, b) => sum + (b.element === 'reactor' ? -b.kvarAtAppliedV : 0), 0);
+    if (selection && reactorKvar > 0) {
+      const idealCapKvar = sized.branches.reduce((sum, b) => sum + (b.element === 'capacitor' ? b.kvarAtAppliedV : 0), 0);
+      if (selection.deliveredKvar < idealCapKvar) reasons.push(infeasibleReason.capacitorsRoundedDownBesideReactors(selection.deliveredKvar, idealCapKvar, reactorKvar));
+    }
   } else if (!verification.tolerance.low.check.met || verification.tolerance.high.check.leadingLines.length > 0)
     status = 'meets-target-at-nominal-capacitance';
   else status = 'meets-target';

@@ -81,6 +81,8 @@ export const infeasibleReason = {
       .join(', ')}: reactors on ${branches.join(', ')} are needed, which a capacitor-only build cannot give`,
   capacitorsCannotBalance: (shortfalls: readonly string[]) =>
     `capacitors alone cannot bring the unbalance down without making a line lead: ${shortfalls.join('; ')}`,
+  capacitorsRoundedDownBesideReactors: (built: number, ideal: number, reactor: number) =>
+    `beside reactors kept at their sized values a capacitor may not exceed its requirement (past it the balance tips and lines lead), so the units fall short of the ideal capacitors: ${built.toFixed(2)} kvar built against ${ideal.toFixed(2)} kvar sized; the net compensation, capacitors less the ${reactor.toFixed(2)} kvar of reactors, falls from ${(ideal - reactor).toFixed(2)} to ${(built - reactor).toFixed(2)} kvar. Re-sizing the reactors to the capacitors as built is not part of this study`,
   unitsMissTarget: (shortfalls: readonly string[]) => `with the units chosen the corrected board misses the target: ${shortfalls.join('; ')}`,
 };
 

@@ -59,7 +59,6 @@ export function solveFixedNetwork(board: Board, input: FixedNetworkInput): Netwo
   );
   net.solveLinear();
   const nodeVoltages = Array.from({ length: net.nodeCount }, (_, v): ComplexValue | null => (net.live[v] ? { re: net.voltageRe[v]!, im: net.voltageIm[v]! } : null));
-  if (topo.lineAdmittance) topo.sourceNode.forEach((s, k) => (nodeVoltages[s] = board.emf[k]!));
   for (const v of nodeVoltages)
     if (v && !isFiniteComplex(v)) throw new NumericalError('non-finite', 'the solve produced a non-finite voltage; check for extreme impedance values');
   const voltageAt = (node: number) => (node === REFERENCE ? ZERO : nodeVoltages[node]);

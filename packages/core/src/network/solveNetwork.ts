@@ -11,11 +11,12 @@
  * parts of a load are held at their threshold admittance (they behave as
  * impedances), the usual way load-flow programs keep collapsing voltages solvable.
  */
-import { add, mul, sub, ZERO, type ComplexValue } from '../complex.js';
-import type { Board, Terminal } from '../board/boardModel.js';
-import { buildTopology, REFERENCE, type NetworkTopology } from './networkTopology.js';
+import { add, conj, mul, sub, ZERO, type ComplexValue } from '../complex.js';
+import type { Board, Installation, Terminal } from '../board/boardModel.js';
+import { REFERENCE, type NetworkTopology } from './networkTopology.js';
+import { buildInstallationCircuit, type InstallationCircuit } from './installationCircuit.js';
+import { boardOfInstallation, installationOf } from './installationModel.js';
 import { resolveSolveOptions, type SolveOptions } from './solveOptions.js';
-import type { Circuit, CircuitBranch, CircuitElement, CircuitSource } from './circuit.js';
 import { compileCircuit, type CompiledNetwork } from './compiledNetwork.js';
 
 export type { SolveOptions } from './solveOptions.js';
@@ -40,6 +41,12 @@ export interface NetworkSolution {
   readonly lastChange: number;
   /** The per-unit voltage below which current and power parts of loads were held as impedances. */
   readonly lowVoltageThreshold: number;
+  /**
+   * For a board of an installation: the power its feeder takes at the sending end
+   * (the feeding board's bus), VA, which includes the boards it feeds in turn.
+   * Absent for a main board, whose supply is its source EMFs.
+   */
+  readonly suppliedPower?: ComplexValue;
 }
 
 export interface BranchState {
@@ -50,32 +57,44 @@ export interface BranchState {
   readonly energised: boolean;
 }
 
-/**
- * The board as a circuit for the compiled solver, numbered like its topology.
- * A source terminal node is folded into its line (Norton), so it carries no
- * element; its voltage is the EMF.
- */
-export function boardCircuit(board: Board, topo: NetworkTopology = buildTopology(board)): Circuit {
-  const elements: CircuitElement[] = [];
-  if (topo.neutralAdmittance && topo.neutralNode !== undefined) elements.push({ from: topo.neutralNode, to: REFERENCE, admittance: topo.neutralAdmittance });
-  const sources: CircuitSource[] = topo.busNode.map((bus, k) => ({ plus: bus, minus: REFERENCE, emf: board.emf[k]!, admittance: topo.lineAdmittance }));
-  const branches: CircuitBranch[] = board.loads.flatMap((load) =>
-    load.branches.map((b) => ({ from: topo.terminalNode.get(b.from)!, to: topo.terminalNode.get(b.to)!, sNominal: b.sNominal, vNominal: b.vNominal, zip: b.zip })),
-  );
-  return { nodeNames: topo.nodeNames, elements, sources, branches, voltageBase: board.nominalLineToNeutralV };
+/** An installation compiled once for repeated solves (see `compileInstallation`). */
+export interface CompiledInstallation {
+  readonly installation: Installation;
+  readonly layout: InstallationCircuit;
+  readonly network: CompiledNetwork;
+}
+
+/** Compiles an installation (or a single board's one-board installation) once. */
+export function compileInstallation(installation: Installation): CompiledInstallation {
+  const layout = buildInstallationCircuit(installation);
+  return { installation, layout, network: compileCircuit(layout.circuit) };
+}
+
+/** Per board of a solved installation: the board's solution, read as a single board's is. */
+export interface InstallationSolution {
+  readonly installation: Installation;
+  /** Index = board number (0 = main board, i + 1 = `subBoards[i]`). */
+  readonly boards: readonly NetworkSolution[];
 }
 
 /** A board compiled for repeated solves, with its topology (see `compileBoard`). */
 export interface CompiledBoard {
   readonly board: Board;
+  readonly boardIndex: number;
   readonly topology: NetworkTopology;
+  readonly installation: CompiledInstallation;
+  /** The compiled circuit: `network.solve()` is the allocation-free hot path. */
   readonly network: CompiledNetwork;
 }
 
-/** Compiles a board once; `solveCompiledBoard` then solves it as often as needed. */
+/**
+ * Compiles a board once; `solveCompiledBoard` then solves it as often as needed.
+ * A board of an installation compiles the whole installation.
+ */
 export function compileBoard(board: Board): CompiledBoard {
-  const topology = buildTopology(board);
-  return { board, topology, network: compileCircuit(boardCircuit(board, topology)) };
+  const { installation, boardIndex } = installationOf(board);
+  const compiled = compileInstallation(installation);
+  return { board, boardIndex, topology: compiled.layout.topologies[boardIndex]!, installation: compiled, network: compiled.network };
 }
 
 /**
@@ -83,52 +102,126 @@ export function compileBoard(board: Board): CompiledBoard {
  * @throws {NumericalError} when the network is singular or the load iteration does not settle.
  */
 export function solveCompiledBoard(compiled: CompiledBoard, options?: SolveOptions): NetworkSolution {
+  const solution = solveCompiledInstallation(compiled.installation, options);
+  return { ...solution.boards[compiled.boardIndex]!, board: compiled.board };
+}
+
+/**
+ * Solves a compiled installation: every board's node voltages, feeder and
+ * neutral currents and load branches.
+ * @throws {NumericalError} when the network is singular or the load iteration does not settle.
+ */
+export function solveCompiledInstallation(compiled: CompiledInstallation, options?: SolveOptions): InstallationSolution {
   const opts = resolveSolveOptions(options);
-  const { board, topology: topo, network: net } = compiled;
+  const { installation, layout, network: net } = compiled;
   net.solve(opts);
   const nodeVoltages = Array.from({ length: net.nodeCount }, (_, v): ComplexValue | null => (net.live[v] ? { re: net.voltageRe[v]!, im: net.voltageIm[v]! } : null));
-  // Folded source terminals sit at their EMF.
-  if (topo.lineAdmittance) topo.sourceNode.forEach((s, k) => (nodeVoltages[s] = board.emf[k]!));
-  let k = 0;
-  const branches = board.loads.map((l) =>
-    l.branches.map((): BranchState => {
-      const admittance = { re: net.admittanceRe[k]!, im: net.admittanceIm[k]! };
-      const active = net.isBranchActive(k);
-      const voltage = { re: net.branchVoltageRe(k), im: net.branchVoltageIm(k) };
-      k++;
-      if (!active) return { voltage: ZERO, current: ZERO, admittance, energised: false };
-      return { voltage, current: mul(admittance, voltage), admittance, energised: true };
-    }),
-  );
-  const lineCurrents = net.sourceCurrents();
-  let neutralCurrent: ComplexValue | null = null;
-  if (board.hasNeutral) {
-    if (board.neutralOpen) neutralCurrent = ZERO;
-    else if (topo.neutralAdmittance) neutralCurrent = mul(topo.neutralAdmittance, voltageOf(nodeVoltages, topo.neutralNode!) ?? ZERO);
-    else {
-      // Solid neutral: the bar's current is what the load branches bring to it.
+  const admittances = Array.from({ length: net.branchCount }, (_, k): ComplexValue => ({ re: net.admittanceRe[k]!, im: net.admittanceIm[k]! }));
+  const sourceCurrents = net.sourceCurrents();
+  return readInstallationSolution(installation, layout, { nodeVoltages, admittances, sourceCurrents, iterations: net.iterations, lastChange: net.lastChange, lowVoltageThreshold: opts.lowVoltageThreshold });
+}
+
+/** A solved state of an installation's circuit, however it was reached (fixed point, Newton). */
+export interface CircuitState {
+  /** Per circuit node; null for a dead node. */
+  readonly nodeVoltages: readonly (ComplexValue | null)[];
+  /** Per circuit branch, the admittance it had at the solution. */
+  readonly admittances: readonly ComplexValue[];
+  /** Per circuit source, the current it delivers out of its plus terminal. */
+  readonly sourceCurrents: readonly ComplexValue[];
+  readonly iterations: number;
+  readonly lastChange: number;
+  readonly lowVoltageThreshold: number;
+}
+
+/** Reads a solved circuit state board by board: line, neutral and branch currents in each board's terms. */
+export function readInstallationSolution(installation: Installation, layout: InstallationCircuit, state: CircuitState): InstallationSolution {
+  const { nodeVoltages } = state;
+  const live = (node: number) => node === REFERENCE || nodeVoltages[node] !== null;
+  const at = (node: number): ComplexValue => (node === REFERENCE ? ZERO : (nodeVoltages[node] ?? ZERO));
+  const count = installation.subBoards.length + 1;
+  const loadsOf = (b: number) => (b === 0 ? installation.main.loads : installation.subBoards[b - 1]!.loads);
+  const branchStates: BranchState[][][] = [];
+  for (let b = 0; b < count; b++) {
+    let k = layout.branchOffset[b]!;
+    branchStates.push(
+      loadsOf(b).map((l) =>
+        l.branches.map((): BranchState => {
+          const admittance = state.admittances[k]!;
+          const cb = layout.circuit.branches[k]!;
+          k++;
+          if (!live(cb.from) || !live(cb.to)) return { voltage: ZERO, current: ZERO, admittance, energised: false };
+          const voltage = sub(at(cb.from), at(cb.to));
+          return { voltage, current: mul(admittance, voltage), admittance, energised: true };
+        }),
+      ),
+    );
+  }
+  const sourceCurrents = state.sourceCurrents;
+  const phases = installation.main.phases;
+  const hasNeutral = installation.main.hasNeutral;
+  const lineCurrents: ComplexValue[][] = new Array(count);
+  const neutralCurrents: (ComplexValue | null)[] = new Array(count).fill(null);
+  const elementCurrent = (e: number) => {
+    const el = layout.circuit.elements[e]!;
+    return mul(el.admittance, sub(at(el.from), at(el.to)));
+  };
+  // Children first: where a conductor has no impedance its current is found by KCL at the board.
+  for (let o = layout.order.length - 1; o >= 0; o--) {
+    const b = layout.order[o]!;
+    const own = (terminal: Terminal) => {
       let total = ZERO;
-      board.loads.forEach((l, li) =>
-        l.branches.forEach((b, bi) => {
-          const i = branches[li]![bi]!.current;
-          if (b.to === 'N') total = add(total, i);
-          if (b.from === 'N') total = sub(total, i);
+      loadsOf(b).forEach((l, li) =>
+        l.branches.forEach((br, bi) => {
+          const i = branchStates[b]![li]![bi]!.current;
+          if (br.from === terminal) total = add(total, i);
+          if (br.to === terminal) total = sub(total, i);
         }),
       );
-      neutralCurrent = total;
-    }
+      return total;
+    };
+    const downstream = (pick: (c: number) => ComplexValue) => layout.children[b]!.reduce((t, c) => add(t, pick(c)), ZERO);
+    const feeder = layout.feederElements[b];
+    lineCurrents[b] = phases.map((phase, k) => {
+      if (b === 0) return sourceCurrents[layout.mainSources[k]!]!;
+      const e = feeder!.lines[k];
+      return e !== null && e !== undefined ? elementCurrent(e) : add(own(phase), downstream((c) => lineCurrents[c]![k]!));
+    });
+    if (!hasNeutral) continue;
+    const open = b === 0 ? installation.main.neutralOpen : installation.subBoards[b - 1]!.feeder.neutralOpen;
+    const topo = layout.topologies[b]!;
+    if (open) neutralCurrents[b] = ZERO;
+    else if (b === 0 && topo.neutralAdmittance) neutralCurrents[b] = mul(topo.neutralAdmittance, at(topo.neutralNode!));
+    else if (b > 0 && feeder!.neutral !== null) neutralCurrents[b] = elementCurrent(feeder!.neutral);
+    else neutralCurrents[b] = sub(downstream((c) => neutralCurrents[c]!), own('N'));
   }
-  return {
-    board,
-    topology: topo,
-    nodeVoltages,
-    lineCurrents,
-    neutralCurrent,
-    branches,
-    iterations: net.iterations,
-    lastChange: net.lastChange,
-    lowVoltageThreshold: opts.lowVoltageThreshold,
-  };
+  const boards = Array.from({ length: count }, (_, b): NetworkSolution => {
+    const topo = layout.topologies[b]!;
+    const base = {
+      board: boardOfInstallation(installation, b),
+      topology: topo,
+      nodeVoltages,
+      lineCurrents: lineCurrents[b]!,
+      neutralCurrent: neutralCurrents[b]!,
+      branches: branchStates[b]!,
+      iterations: state.iterations,
+      lastChange: state.lastChange,
+      lowVoltageThreshold: state.lowVoltageThreshold,
+    };
+    if (b === 0) return base;
+    const parent = layout.topologies[installation.subBoards[b - 1]!.fedFrom]!;
+    let supplied = ZERO;
+    phases.forEach((_, k) => (supplied = add(supplied, mul(at(parent.busNode[k]!), conj(lineCurrents[b]![k]!)))));
+    if (hasNeutral) supplied = sub(supplied, mul(at(parent.neutralNode!), conj(neutralCurrents[b]!)));
+    return { ...base, suppliedPower: supplied };
+  });
+  return { installation, boards };
+}
+
+/** Solves an installation once (compiles it first). */
+export function solveInstallationNetwork(installation: Installation, options?: SolveOptions): InstallationSolution {
+  resolveSolveOptions(options);
+  return solveCompiledInstallation(compileInstallation(installation), options);
 }
 
 const voltageOf = (voltages: readonly (ComplexValue | null)[], node: number): ComplexValue | null =>

@@ -10,13 +10,15 @@
  * iteration, which is what following a state along a changing parameter needs.
  *
  * Unknowns are the real and imaginary parts of every live node voltage except
- * the EMF terminals; the residual is Kirchhoff's current law at each node. The
+ * those an ideal EMF fixes (the board's circuit, as `solveNetwork` builds it); the residual is Kirchhoff's current law at each node. The
  * Jacobian is real (|V| in a load's admittance is not complex-differentiable).
  */
 import { abs, add, conj, mul, scale, sub, ZERO, type ComplexValue } from '../complex.js';
 import type { Board, LoadBranch } from '../board/boardModel.js';
-import { buildTopology, REFERENCE, type NetworkTopology } from './networkTopology.js';
-import type { BranchState, NetworkSolution } from './solveNetwork.js';
+import { REFERENCE, type Circuit } from './circuit.js';
+import { buildInstallationCircuit } from './installationCircuit.js';
+import { installationOf } from './installationModel.js';
+import { readInstallationSolution, type NetworkSolution } from './solveNetwork.js';
 
 export interface NewtonOptions {
   /**
@@ -46,7 +48,7 @@ export type NewtonOutcome =
   | { readonly converged: false; readonly iterations: number };
 
 /** Branch current and its derivatives with respect to the real and imaginary parts of the branch voltage. */
-function branchCurrent(branch: LoadBranch, v: ComplexValue, threshold: number) {
+function branchCurrent(branch: Pick<LoadBranch, 'sNominal' | 'vNominal' | 'zip'>, v: ComplexValue, threshold: number) {
   const v0 = branch.vNominal;
   const m = abs(v);
   const held = m <= threshold * v0;
@@ -63,56 +65,44 @@ function branchCurrent(branch: LoadBranch, v: ComplexValue, threshold: number) {
   return { current, admittance, dx, dy };
 }
 
-/** Branch, line and neutral currents from solved node voltages, in `solveNetwork`'s result shape. */
-function assembleSolution(
-  board: Board,
-  topology: NetworkTopology,
-  nodeVoltages: readonly (ComplexValue | null)[],
-  threshold: number,
-  iterations: number,
-  lastChange: number,
-): NetworkSolution {
-  const at = (node: number) => (node === REFERENCE ? ZERO : nodeVoltages[node]);
-  const branches = board.loads.map((load) =>
-    load.branches.map((b): BranchState => {
-      const vf = at(topology.terminalNode.get(b.from)!);
-      const vt = at(topology.terminalNode.get(b.to)!);
-      if (!vf || !vt || abs(b.sNominal) === 0) {
-        const voltage = vf && vt ? sub(vf, vt) : ZERO;
-        return { voltage, current: ZERO, admittance: ZERO, energised: Boolean(vf && vt) };
-      }
-      const voltage = sub(vf, vt);
-      const { current, admittance } = branchCurrent(b, voltage, threshold);
-      return { voltage, current, admittance, energised: true };
-    }),
-  );
-  const lineCurrents = topology.sourceNode.map((s, k) => {
-    if (topology.lineAdmittance) return mul(topology.lineAdmittance, sub(nodeVoltages[s]!, nodeVoltages[topology.busNode[k]!]!));
-    // No line impedance: the line carries what the loads draw from the bus.
-    let total = ZERO;
-    const phase = board.phases[k]!;
-    board.loads.forEach((l, li) =>
-      l.branches.forEach((b, bi) => {
-        if (b.from === phase) total = add(total, branches[li]![bi]!.current);
-        if (b.to === phase) total = sub(total, branches[li]![bi]!.current);
-      }),
-    );
-    return total;
-  });
-  let neutralCurrent: ComplexValue | null = null;
-  if (board.hasNeutral) {
-    neutralCurrent = ZERO;
-    if (topology.neutralAdmittance && topology.neutralNode !== undefined)
-      neutralCurrent = mul(topology.neutralAdmittance, at(topology.neutralNode) ?? ZERO);
-    else if (!board.neutralOpen)
-      board.loads.forEach((l, li) =>
-        l.branches.forEach((b, bi) => {
-          if (b.to === 'N') neutralCurrent = add(neutralCurrent!, branches[li]![bi]!.current);
-          if (b.from === 'N') neutralCurrent = sub(neutralCurrent!, branches[li]![bi]!.current);
-        }),
-      );
+/**
+ * Current each source delivers out of its plus terminal at the given voltages: a source
+ * behind an admittance from its own equation, an ideal one by KCL at the node it fixes
+ * (the ones fixed last hang from the earlier ones, so they are settled first).
+ */
+function sourceCurrentsAt(circuit: Circuit, voltages: readonly (ComplexValue | null)[], admittances: readonly ComplexValue[]): ComplexValue[] {
+  const at = (node: number) => (node === REFERENCE ? ZERO : (voltages[node] ?? ZERO));
+  const live = (node: number) => node === REFERENCE || voltages[node] !== null;
+  const out = new Map<number, ComplexValue>();
+  const leave = (node: number, i: ComplexValue) => out.set(node, add(out.get(node) ?? ZERO, i));
+  for (const e of circuit.elements) {
+    if (!live(e.from) || !live(e.to)) continue;
+    const i = mul(e.admittance, sub(at(e.from), at(e.to)));
+    leave(e.from, i);
+    leave(e.to, scale(i, -1));
   }
-  return { board, topology, nodeVoltages, lineCurrents, neutralCurrent, branches, iterations, lastChange, lowVoltageThreshold: threshold };
+  circuit.branches.forEach((b, k) => {
+    if (!live(b.from) || !live(b.to)) return;
+    const i = mul(admittances[k]!, sub(at(b.from), at(b.to)));
+    leave(b.from, i);
+    leave(b.to, scale(i, -1));
+  });
+  const currents = new Array<ComplexValue>(circuit.sources.length);
+  circuit.sources.forEach((s, k) => {
+    if (!s.admittance) return;
+    const i = mul(s.admittance, sub(s.emf, sub(at(s.plus), at(s.minus))));
+    currents[k] = i;
+    leave(s.plus, scale(i, -1));
+    leave(s.minus, i);
+  });
+  for (let k = circuit.sources.length - 1; k >= 0; k--) {
+    const s = circuit.sources[k]!;
+    if (s.admittance) continue;
+    const i = out.get(s.plus) ?? ZERO;
+    currents[k] = i;
+    leave(s.minus, i);
+  }
+  return currents;
 }
 
 /**
@@ -150,7 +140,7 @@ function solveReal(a: Float64Array, b: Float64Array, n: number): Float64Array | 
 
 /**
  * Solves `board` by Newton's method from `start` (node voltages in the node
- * order of `buildTopology(board)`, null for a dead node — e.g. a
+ * order of the board's circuit, null for a dead node — e.g. a
  * `NetworkSolution.nodeVoltages` of a board with the same nodes).
  * Returns `converged: false` rather than throwing: a search that finds no state
  * near its start is an answer for the callers (a fold, where a state ceases to exist).
@@ -160,14 +150,18 @@ export function solveNetworkByNewton(board: Board, start: readonly (ComplexValue
   const maxIterations = options.maxIterations ?? 40;
   const threshold = options.lowVoltageThreshold ?? 0.7;
   const maxUpdate = options.maxUpdate ?? 0.25;
-  const topo = buildTopology(board);
+  const { installation, boardIndex } = installationOf(board);
+  const layout = buildInstallationCircuit(installation);
+  const circuit = layout.circuit;
+  if (start.length !== circuit.nodeNames.length) throw new RangeError(`solveNetworkByNewton: the start has ${start.length} node voltages, the board's circuit ${circuit.nodeNames.length}`);
   const vBase = board.nominalLineToNeutralV;
   const voltages = start.map((v) => v);
   const fixed = new Set<number>();
-  topo.sourceNode.forEach((s, k) => {
-    fixed.add(s);
-    voltages[s] = board.emf[k]!;
-  });
+  for (const src of circuit.sources) {
+    if (src.admittance) continue;
+    fixed.add(src.plus);
+    voltages[src.plus] = add(src.minus === REFERENCE ? ZERO : (voltages[src.minus] ?? ZERO), src.emf);
+  }
   const index = new Array<number>(voltages.length).fill(-1);
   let n = 0;
   voltages.forEach((v, node) => {
@@ -205,16 +199,18 @@ export function solveNetworkByNewton(board: Board, start: readonly (ComplexValue
     };
     const stampLinear = (p: number, q: number, y: ComplexValue) =>
       stamp(p, q, mul(y, sub(at(p), at(q))), y, { re: -y.im, im: y.re });
-    if (topo.lineAdmittance) topo.sourceNode.forEach((s, k) => stampLinear(s, topo.busNode[k]!, topo.lineAdmittance!));
-    if (topo.neutralAdmittance && topo.neutralNode !== undefined) stampLinear(topo.neutralNode, REFERENCE, topo.neutralAdmittance);
-    for (const load of board.loads)
-      for (const b of load.branches) {
-        const p = topo.terminalNode.get(b.from)!;
-        const q = topo.terminalNode.get(b.to)!;
-        if (abs(b.sNominal) === 0 || !live(p) || !live(q)) continue;
-        const { current, dx, dy } = branchCurrent(b, sub(at(p), at(q)), threshold);
-        stamp(p, q, current, dx, dy);
-      }
+    for (const e of circuit.elements) if (live(e.from) && live(e.to)) stampLinear(e.from, e.to, e.admittance);
+    // A source behind an admittance draws y·(V+ − V− − E) out of its plus terminal.
+    for (const src of circuit.sources) {
+      if (!src.admittance || !live(src.plus) || !live(src.minus)) continue;
+      const y = src.admittance;
+      stamp(src.plus, src.minus, mul(y, sub(sub(at(src.plus), at(src.minus)), src.emf)), y, { re: -y.im, im: y.re });
+    }
+    for (const b of circuit.branches) {
+      if (abs(b.sNominal) === 0 || !live(b.from) || !live(b.to)) continue;
+      const { current, dx, dy } = branchCurrent(b, sub(at(b.from), at(b.to)), threshold);
+      stamp(b.from, b.to, current, dx, dy);
+    }
     for (let k = 0; k < size; k++) residual[k] = -residual[k]!;
     const step = solveReal(jac, residual, size);
     if (!step) return { converged: false, iterations: iteration };
@@ -225,8 +221,13 @@ export function solveNetworkByNewton(board: Board, start: readonly (ComplexValue
       const k = index[node]!;
       if (v && k >= 0) voltages[node] = add(v, scale({ re: step[2 * k]!, im: step[2 * k + 1]! }, shorten));
     });
-    if (largest <= tolerance)
-      return { converged: true, solution: assembleSolution(board, topo, voltages, threshold, iteration, largest) };
+    if (largest <= tolerance) {
+      const admittances = circuit.branches.map((b) =>
+        abs(b.sNominal) === 0 || !live(b.from) || !live(b.to) ? ZERO : branchCurrent(b, sub(at(b.from), at(b.to)), threshold).admittance,
+      );
+      const state = { nodeVoltages: voltages, admittances, sourceCurrents: sourceCurrentsAt(circuit, voltages, admittances), iterations: iteration, lastChange: largest, lowVoltageThreshold: threshold };
+      return { converged: true, solution: { ...readInstallationSolution(installation, layout, state).boards[boardIndex]!, board } };
+    }
   }
   return { converged: false, iterations: maxIterations };
 }

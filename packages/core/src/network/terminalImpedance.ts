@@ -2,9 +2,9 @@
  * Impedance seen between terminals of a board with every EMF shorted (the
  * network "looking in" from the board, as a frequency scan needs it).
  *
- * The node numbering comes from `buildTopology`, the same as every solve; with
- * the EMFs shorted the source terminals are the star point, so the unknowns
- * are the board's own nodes (phase buses, neutral bar, floating star points).
+ * The node numbering comes from `compileBoard`, the same as every solve (each
+ * source folded into its line); with the EMFs shorted a bus an ideal EMF holds
+ * is the star point, so the unknowns are the board's own nodes (phase buses, neutral bar, floating star points).
  * That leaves a handful of unknowns, so the matrix lives in two flat typed
  * arrays and is inverted in place: a scan evaluates it hundreds of thousands
  * of times, and the general solve's object arithmetic would dominate (see
@@ -39,7 +39,8 @@ export function planPassiveNetwork(board: Board): PassiveNetworkPlan {
   // Same numbering and the same idea of which nodes conduct as every solve.
   const { topology: topo, network } = compileBoard(board);
   const live = Array.from(network.live, (x) => x === 1);
-  const sources = new Set(topo.sourceNode);
+  // Buses an ideal EMF holds (no line impedance) sit on the star point once the EMFs are shorted.
+  const sources = new Set(network.circuit.sources.filter((s) => !s.admittance).map((s) => s.plus));
   const index = new Array<number>(topo.nodeNames.length).fill(-1);
   let size = 0;
   live.forEach((ok, node) => {

@@ -5,9 +5,7 @@
  * parts) whose powers are overwritten per interval, so the compiled pattern,
  * the load iteration and its stopping rule are the general solver's own.
  */
-import { boardCircuit } from '../network/solveNetwork.js';
-import { compileCircuit } from '../network/compiledNetwork.js';
-import { buildTopology } from '../network/networkTopology.js';
+import { compileBoard } from '../network/solveNetwork.js';
 import { REFERENCE } from '../network/circuit.js';
 import type { Board, BoardLoad, ZipFractions } from '../board/boardModel.js';
 import type { BatchNetwork } from './batchNetwork.js';
@@ -31,8 +29,7 @@ export function createCompiledKernel(net: BatchNetwork, options?: KernelOptions)
     branches: PARTS.map((zip) => ({ from: e.from, to: e.to, sNominal: { re: 1, im: 0 }, vNominal: e.vNominal, zip })),
   }));
   const edgeBoard: Board = { ...board, loads };
-  const topology = buildTopology(edgeBoard);
-  const network = compileCircuit(boardCircuit(edgeBoard, topology));
+  const { topology, network } = compileBoard(edgeBoard);
   const np = board.phases.length;
   const state = newIntervalState(np);
   const emf = board.emf;

@@ -1,5 +1,15 @@
 /** Report sections about the board itself: description, panel schedule, solved results, lost neutral. */
-import type { BoardSpec } from '../../board/boardSchema.js';
+import type { BoardSpec, ImpedanceSpec } from '../../board/boardSchema.js';
+import { describeConductor, isPerPhaseLine } from '../../board/feederModel.js';
+
+/** A source impedance as entered: one for all phases, or one per phase. */
+function impedanceWords(z: NonNullable<BoardSpec['supply']['impedance']>): string {
+  if ('r' in z) return `${z.r} + j${z.x} Ω`;
+  return (['A', 'B', 'C'] as const)
+    .filter((p) => z[p])
+    .map((p) => `${p} ${(z[p] as ImpedanceSpec).r} + j${(z[p] as ImpedanceSpec).x} Ω`)
+    .join(', ');
+}
 import type { BoardResult, LoadReading } from '../../analysis/boardResult.js';
 import { fixed } from '../svgText.js';
 import { renderPhasorDiagram } from '../renderPhasorDiagram.js';
@@ -16,8 +26,12 @@ const SYSTEM_WORDS: Readonly<Record<string, string>> = {
 const pfWords = (pf: number | null, sense: string): string => (pf === null ? '—' : `${fixed(pf, 3)}${sense === 'unity' ? '' : sense === 'lagging' ? ' lag' : ' lead'}`);
 const orDash = (x: number | null | undefined, digits: number): string => (x === null || x === undefined ? '—' : fixed(x, digits));
 
-function conductorWords(c: NonNullable<BoardSpec['feeder']>['line']): string {
-  if (!c) return 'none entered (zero impedance)';
+function conductorWords(line: NonNullable<BoardSpec['feeder']>['line'], feeder?: BoardSpec['feeder']): string {
+  if (!line) return 'none entered (zero impedance)';
+  if (isPerPhaseLine(line)) return (['A', 'B', 'C'] as const).filter((p) => line[p]).map((p) => `${p}: ${conductorWords(line[p], feeder)}`).join('; ');
+  const c = line;
+  const library = describeConductor(c, feeder);
+  if (library) return `${library}${c.ratingA !== undefined ? `, rated ${c.ratingA} A` : ''}`;
   const parts: string[] = [];
   if (c.lengthM !== undefined) parts.push(`${c.lengthM} m at ${c.rOhmPerKm ?? 0} + j${c.xOhmPerKm ?? 0} Ω/km`);
   if (c.r !== undefined || c.x !== undefined) parts.push(`${c.r ?? 0} + j${c.x ?? 0} Ω`);
@@ -28,11 +42,16 @@ function conductorWords(c: NonNullable<BoardSpec['feeder']>['line']): string {
 export function installationSection(spec: BoardSpec, result: BoardResult): ReportSection {
   const b = result.board;
   const s = spec.supply;
-  const source = s.transformer
-    ? `transformer ${s.transformer.kVA} kVA, impedance ${s.transformer.impedancePercent} %, X/R ${s.transformer.xOverR}${s.impedance ? `, plus ${s.impedance.r} + j${s.impedance.x} Ω` : ''}`
+  const base = s.transformer
+    ? `transformer ${s.transformer.kVA} kVA, impedance ${s.transformer.impedancePercent} %, X/R ${s.transformer.xOverR}${s.impedance ? `, plus ${impedanceWords(s.impedance)}` : ''}`
     : s.impedance
-      ? `${s.impedance.r} + j${s.impedance.x} Ω per phase`
-      : 'ideal (zero source impedance)';
+      ? `${impedanceWords(s.impedance)}${'r' in s.impedance ? ' per phase' : ''}`
+      : s.bank
+        ? 'a bank of single-phase units, one per phase'
+        : s.openDelta
+          ? `an open delta of two single-phase units (${Object.keys(s.openDelta).join(' and ')})`
+          : 'ideal (zero source impedance)';
+  const source = s.zeroSequence ? `${base}; zero-sequence ${s.zeroSequence.r} + j${s.zeroSequence.x} Ω` : base;
   const items: [string, string][] = [
     ['Board', b.name],
     ['System', SYSTEM_WORDS[b.system] ?? b.system],
@@ -40,9 +59,9 @@ export function installationSection(spec: BoardSpec, result: BoardResult): Repor
     ...((result.sequences ? [['Frequency and phase sequence', `${b.frequencyHz} Hz, ${b.sequence}`]] : [['Frequency', `${b.frequencyHz} Hz`]]) as [string, string][]),
     ['Source', source],
     ['Source voltages', s.emf ? 'unbalanced, as entered per phase' : 'balanced at nominal voltage'],
-    ['Feeder, each line', conductorWords(spec.feeder?.line)],
+    ['Feeder, each line', conductorWords(spec.feeder?.line, spec.feeder)],
   ];
-  if (result.neutral !== null) items.push(['Feeder, neutral', conductorWords(spec.feeder?.neutral)]);
+  if (result.neutral !== null) items.push(['Feeder, neutral', conductorWords(spec.feeder?.neutral, spec.feeder)]);
   if (b.neutralOpen) items.push(['Neutral', 'entered as broken (what-if)']);
   items.push(['Circuits', `${spec.loads.length}`]);
   const blocks: ReportBlock[] = [{ kind: 'facts', items }];

@@ -1,0 +1,114 @@
+/** InstallationResult → the text report of `trivar solve` on an installation: a summary per board and per feeder. */
+import type { InstallationResult } from '@trivar/core';
+import { fixed, renderTable, section } from './textTable.js';
+import { renderSolveReport } from './solveReport.js';
+import { REPORT_WIDTH, wrapText } from './wrapText.js';
+
+const note = (text: string) => `${wrapText(text, '  (', '   ', REPORT_WIDTH - 1)})`;
+
+const SYSTEM_WORDS: Record<string, string> = {
+  'three-phase-4wire': 'three-phase 4-wire',
+  'three-phase-3wire': 'three-phase 3-wire',
+  'split-phase': 'split-phase 3-wire',
+  'single-phase': 'single-phase 2-wire',
+};
+
+/** Board names indented by their depth in the tree, so the table reads as the riser does. */
+const treeName = (name: string, depth: number) => `${'  '.repeat(depth - 1)}${depth > 1 ? '└ ' : ''}${name}`;
+
+function boardTable(r: InstallationResult): string {
+  const rows = r.boards.map((b) => {
+    const res = b.result;
+    const percents = res.phases.map((p) => p.voltagePercent);
+    return [
+      treeName(b.name, b.depth),
+      fixed(Math.min(...percents), 1),
+      fixed(Math.max(...percents), 1),
+      res.neutral ? fixed(res.neutral.current.magnitude, 1) : '',
+      res.unbalance ? fixed(res.unbalance.voltageFactorPercent, 2) : '',
+      fixed(res.totals.kW, 2),
+      fixed(res.totals.kvar, 2),
+      fixed(res.source.kW, 2),
+      String(res.warnings.length || ''),
+    ];
+  });
+  return renderTable(
+    [
+      { header: 'board', align: 'left' },
+      { header: 'min %nom' },
+      { header: 'max %nom' },
+      { header: 'N A' },
+      { header: 'VUF %' },
+      { header: 'own kW' },
+      { header: 'own kvar' },
+      { header: 'fed kW' },
+      { header: 'warnings' },
+    ],
+    rows,
+  );
+}
+
+function feederTable(r: InstallationResult): string {
+  const phases = r.feeders[0]?.lines.map((l) => l.phase) ?? [];
+  const rows = r.feeders.map((f) => [
+    f.board,
+    f.from ?? 'supply',
+    ...f.lines.map((l) => fixed(l.current.magnitude, 1)),
+    ...(f.neutral ? [f.neutral.open ? 'open' : fixed(f.neutral.current.magnitude, 1)] : []),
+    fixed(f.voltageDropPercent, 2),
+    fixed(f.lossesKW, 3),
+  ]);
+  const hasNeutral = r.feeders[0]?.neutral !== null;
+  return renderTable(
+    [
+      { header: 'to', align: 'left' },
+      { header: 'from', align: 'left' },
+      ...phases.map((p) => ({ header: `${p} A` })),
+      ...(hasNeutral ? [{ header: 'N A' }] : []),
+      { header: 'drop %' },
+      { header: 'loss kW' },
+    ],
+    rows,
+  );
+}
+
+function cableList(r: InstallationResult): string {
+  const lines = r.feeders.filter((f) => f.description).map((f) => wrapText(`${f.board}: ${f.description}`, '  cable to ', '    '));
+  return lines.length ? `\n${lines.join('\n')}` : '';
+}
+
+export interface InstallationReportOptions {
+  /** Boards whose full report follows the summary. */
+  readonly detailed: readonly string[];
+}
+
+export function renderInstallationReport(r: InstallationResult, options: InstallationReportOptions): string {
+  const first = r.boards[0]!.result.board;
+  const volts = first.nominalLineToLineV ? `${fixed(first.nominalLineToLineV, 0)}/${fixed(first.nominalLineToNeutralV, 0)} V` : `${fixed(first.nominalLineToNeutralV, 0)} V`;
+  const t = r.totals;
+  const warnings = r.boards.flatMap((b) => b.result.warnings.map((w) => wrapText(`${b.name}: ${w.message}`, '  ! ')));
+  const cautions = [...new Set(r.boards.flatMap((b) => b.result.cautions))];
+  const parts = [
+    [r.installation.name, `${SYSTEM_WORDS[r.installation.system] ?? r.installation.system} · ${volts} · ${first.frequencyHz} Hz · ${r.installation.boardCount} boards`].join('\n'),
+    section('Boards') + boardTable(r) + `\n${note("own: this board's circuits; fed: what its feeder delivers, boards beyond it included.")}`,
+    section('Feeders') +
+      feederTable(r) +
+      `\n${note('drop: |V| at the sending end minus |V| at the board, worst phase, % of nominal; for the service feeder, from the source EMF.')}` +
+      cableList(r),
+    section('Installation') +
+      [
+        `  loads       ${fixed(t.loadKW, 3)} kW  ${fixed(t.loadKvar, 3)} kvar`,
+        `  losses      ${fixed(t.lossesKW, 3)} kW  (source windings and every feeder)`,
+        `  from source ${fixed(t.sourceKW, 3)} kW  ${fixed(t.sourceKvar, 3)} kvar`,
+        `  lowest phase voltage ${fixed(t.lowestVoltagePercent, 1)} % of nominal, at ${t.lowestVoltageBoard}`,
+      ].join('\n'),
+    section('Warnings') + (warnings.length ? warnings.join('\n') : '  none'),
+  ];
+  for (const name of options.detailed) {
+    const board = r.boards.find((b) => b.name === name)!;
+    parts.push(section(`━━ ${name}${board.fedFrom ? ` (fed from ${board.fedFrom})` : ''} ━━`) + renderSolveReport(board.result).trimEnd());
+  }
+  if (options.detailed.length === 0)
+    parts.push(section('Notes') + ['Full figures of one board: --board "<name>"; of every board: --all-boards; everything as data: --json.', ...cautions].map((c) => wrapText(c, '  * ')).join('\n'));
+  return `${parts.join('\n')}\n`;
+}

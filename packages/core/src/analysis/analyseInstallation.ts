@@ -1,0 +1,71 @@
+/** InstallationSolution → InstallationResult: each board read as a board, plus its feeder and the totals. */
+import type { InstallationSolution } from '../network/solveNetwork.js';
+import type { SolveOptions } from '../network/solveOptions.js';
+import { feedingOrder } from '../network/installationCircuit.js';
+import { toPhasor } from '../complex.js';
+import { analyseSolution } from './analyseSolution.js';
+import { studyOpenNeutral } from './studyOpenNeutral.js';
+import type { BoardResult } from './boardResult.js';
+import type { FeederReading, InstallationResult } from './installationResult.js';
+
+export interface AnalyseInstallationOptions extends SolveOptions {
+  /** Also study a broken neutral in each board's feeder. @defaultValue the file's `studies.openNeutral` */
+  readonly openNeutral?: boolean;
+}
+
+export function analyseInstallation(solution: InstallationSolution, options: AnalyseInstallationOptions = {}): InstallationResult {
+  const { installation } = solution;
+  const main = installation.main;
+  const wantOpen = options.openNeutral ?? main.studies.openNeutral;
+  const results: BoardResult[] = solution.boards.map((s) => {
+    const r = analyseSolution(s);
+    return wantOpen ? { ...r, openNeutral: studyOpenNeutral(s.board, options) } : r;
+  });
+  const nameOf = (b: number) => solution.boards[b]!.board.name;
+  const parentOf = (b: number) => (b === 0 ? null : installation.subBoards[b - 1]!.fedFrom);
+  const feederOf = (b: number): FeederReading => {
+    const s = solution.boards[b]!;
+    const r = results[b]!;
+    const parent = parentOf(b);
+    const ln = main.nominalLineToNeutralV;
+    const lines = main.phases.map((phase, k) => {
+      const sending = parent === null ? Math.hypot(main.emf[k]!.re, main.emf[k]!.im) : results[parent]!.phases[k]!.voltage.magnitude;
+      return {
+        phase,
+        current: toPhasor(s.lineCurrents[k]!),
+        loadingPercent: s.board.lineRatingA ? (100 * Math.hypot(s.lineCurrents[k]!.re, s.lineCurrents[k]!.im)) / s.board.lineRatingA : null,
+        voltageDropPercent: (100 * (sending - r.phases[k]!.voltage.magnitude)) / ln,
+      };
+    });
+    return {
+      board: nameOf(b),
+      from: parent === null ? null : nameOf(parent),
+      description: b === 0 ? (installation.serviceFeederDescription ?? null) : installation.subBoards[b - 1]!.feeder.description,
+      lines,
+      neutral: r.neutral ? { current: r.neutral.current, loadingPercent: r.neutral.loadingPercent, open: s.board.neutralOpen } : null,
+      lossesKW: r.losses.totalKW,
+      voltageDropPercent: Math.max(...lines.map((l) => l.voltageDropPercent)),
+    };
+  };
+  const { order } = feedingOrder(installation);
+  const depth = new Array<number>(solution.boards.length).fill(1);
+  for (const b of order) if (b !== 0) depth[b] = depth[parentOf(b)!]! + 1;
+  let lowest = { percent: Infinity, board: nameOf(0) };
+  for (const b of order)
+    for (const p of results[b]!.phases) if (p.voltagePercent < lowest.percent) lowest = { percent: p.voltagePercent, board: nameOf(b) };
+  const sum = (f: (r: BoardResult) => number) => results.reduce((t, r) => t + f(r), 0);
+  return {
+    installation: { name: installation.name, system: main.system, boardCount: results.length },
+    boards: order.map((b) => ({ name: nameOf(b), fedFrom: parentOf(b) === null ? null : nameOf(parentOf(b)!), depth: depth[b]!, result: results[b]! })),
+    feeders: order.map(feederOf),
+    totals: {
+      sourceKW: results[0]!.source.kW,
+      sourceKvar: results[0]!.source.kvar,
+      loadKW: sum((r) => r.totals.kW),
+      loadKvar: sum((r) => r.totals.kvar),
+      lossesKW: sum((r) => r.losses.totalKW),
+      lowestVoltagePercent: lowest.percent,
+      lowestVoltageBoard: lowest.board,
+    },
+  };
+}

@@ -1,0 +1,62 @@
+/**
+ * The result of solving an installation: every board's result (the same shape
+ * as a single board's), every feeder, and the installation's totals. Plain JSON.
+ */
+import type { Phasor } from '../complex.js';
+import type { PhaseId } from '../board/boardModel.js';
+import type { BoardResult } from './boardResult.js';
+
+export interface FeederConductorReading {
+  readonly phase: PhaseId;
+  /** Current from the feeding board towards this board, A. */
+  readonly current: Phasor;
+  readonly loadingPercent: number | null;
+  /** Drop along this conductor's phase: |V| at the sending end minus |V| at the board, % of nominal line-to-neutral voltage (phase voltages as boards report them). */
+  readonly voltageDropPercent: number;
+}
+
+export interface FeederReading {
+  /** The board this feeder supplies. */
+  readonly board: string;
+  /** The board it starts from; null for the service feeder from the supply. */
+  readonly from: string | null;
+  /** The cable in words when sized from the cable library, else null. */
+  readonly description: string | null;
+  readonly lines: readonly FeederConductorReading[];
+  /** Current in the feeder's neutral, from the board back towards the supply, A; null without a neutral. */
+  readonly neutral: { readonly current: Phasor; readonly loadingPercent: number | null; readonly open: boolean } | null;
+  /** Conductor losses (lines and neutral; the service feeder also the source windings), kW. */
+  readonly lossesKW: number;
+  /** Largest of the per-phase drops, %. For the service feeder, from the source EMF. */
+  readonly voltageDropPercent: number;
+}
+
+export interface InstallationBoardResult {
+  readonly name: string;
+  /** The feeding board, or null for the main board. */
+  readonly fedFrom: string | null;
+  /** Boards between this one and the supply, counting itself (main board: 1). */
+  readonly depth: number;
+  readonly result: BoardResult;
+}
+
+export interface InstallationResult {
+  readonly installation: { readonly name: string; readonly system: string; readonly boardCount: number };
+  /** Boards in feeding order (each after the board that feeds it), main board first. */
+  readonly boards: readonly InstallationBoardResult[];
+  /** One per board, in the same order. */
+  readonly feeders: readonly FeederReading[];
+  readonly totals: {
+    /** Delivered by the source EMFs. */
+    readonly sourceKW: number;
+    readonly sourceKvar: number;
+    /** All loads on all boards. */
+    readonly loadKW: number;
+    readonly loadKvar: number;
+    /** Source windings and every feeder. */
+    readonly lossesKW: number;
+    /** The lowest phase voltage anywhere, % of nominal, and the board it is on. */
+    readonly lowestVoltagePercent: number;
+    readonly lowestVoltageBoard: string;
+  };
+}

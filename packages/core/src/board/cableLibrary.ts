@@ -1,0 +1,106 @@
+/**
+ * Conductor resistances by size, and their temperature correction.
+ *
+ * Metric sizes: IEC 60228, class 2 (stranded) conductors, maximum DC resistance at
+ * 20 °C, Ω/km. Checked against two published reproductions of the standard's
+ * Table 2 (mycableengineering.com "IEC 60228 DC resistance" and a cable maker's
+ * conductor specification page); test/reference/cableLibrary.test.ts lists the sample.
+ *
+ * AWG/kcmil sizes: NEC Chapter 9 Table 8, uncoated stranded conductors, DC
+ * resistance at 75 °C, Ω/kft. Checked against a published annotated reproduction
+ * of Table 8 (voltdropcalc.com "NEC Chapter 9, Table 8 — Annotated").
+ *
+ * Temperature: R_T = R_ref·(1 + α_ref·(T − T_ref)). α at 20 °C is 0.00393 /K for
+ * copper and 0.00403 /K for aluminium (IEC 60228 Annex B gives the same
+ * correction as factors); the NEC Table 8 note uses α at 75 °C, 0.00323 /K copper
+ * and 0.00330 /K aluminium. These are DC resistances: skin and proximity effect
+ * add a few per cent above about 150 mm² / 300 kcmil at 50–60 Hz (not modelled;
+ * give r directly where that matters).
+ *
+ * Reactance is not in either table; a library conductor defaults to 0.08 Ω/km,
+ * typical of multicore LV cable (common practice, no source).
+ */
+
+export type ConductorMaterial = 'copper' | 'aluminium';
+
+/** IEC 60228 class 2, Ω/km at 20 °C. */
+const IEC_60228_CLASS_2: Record<ConductorMaterial, Readonly<Record<string, number>>> = {
+  copper: {
+    '1.5': 12.1, '2.5': 7.41, '4': 4.61, '6': 3.08, '10': 1.83, '16': 1.15, '25': 0.727, '35': 0.524, '50': 0.387,
+    '70': 0.268, '95': 0.193, '120': 0.153, '150': 0.124, '185': 0.0991, '240': 0.0754, '300': 0.0601, '400': 0.047,
+  },
+  aluminium: {
+    '10': 3.08, '16': 1.91, '25': 1.2, '35': 0.868, '50': 0.641, '70': 0.443, '95': 0.32, '120': 0.253, '150': 0.206,
+    '185': 0.164, '240': 0.125, '300': 0.1, '400': 0.0778,
+  },
+};
+
+/** NEC Chapter 9 Table 8, uncoated stranded, Ω/kft at 75 °C. Keys: AWG as written ("4/0"), kcmil as "250 kcmil". */
+const NEC_TABLE_8: Record<ConductorMaterial, Readonly<Record<string, number>>> = {
+  copper: {
+    '14': 3.07, '12': 1.93, '10': 1.21, '8': 0.764, '6': 0.491, '4': 0.308, '3': 0.245, '2': 0.194, '1': 0.154,
+    '1/0': 0.122, '2/0': 0.0967, '3/0': 0.0766, '4/0': 0.0608,
+    '250 kcmil': 0.0515, '300 kcmil': 0.0429, '350 kcmil': 0.0367, '400 kcmil': 0.0321, '500 kcmil': 0.0258,
+  },
+  aluminium: {
+    '12': 3.18, '10': 2.0, '8': 1.26, '6': 0.808, '4': 0.508, '3': 0.403, '2': 0.319, '1': 0.253,
+    '1/0': 0.201, '2/0': 0.159, '3/0': 0.126, '4/0': 0.1,
+    '250 kcmil': 0.0847, '300 kcmil': 0.0707, '350 kcmil': 0.0605, '400 kcmil': 0.0529, '500 kcmil': 0.0424,
+  },
+};
+
+const ALPHA_20: Record<ConductorMaterial, number> = { copper: 0.00393, aluminium: 0.00403 };
+const ALPHA_75: Record<ConductorMaterial, number> = { copper: 0.00323, aluminium: 0.0033 };
+const FEET_PER_KM = 1000 / 0.3048;
+
+/** Reactance given to a library conductor when none is stated, Ω/km (common practice, no source). */
+export const DEFAULT_CABLE_REACTANCE_OHM_PER_KM = 0.08;
+/** Operating temperature assumed when none is given, °C: the usual PVC limit for metric sizes, the NEC table's own for AWG. */
+export const DEFAULT_CONDUCTOR_TEMPERATURE_C = { metric: 70, northAmerican: 75 } as const;
+
+export type ConductorSize = { readonly mm2: number } | { readonly awg: string } | { readonly kcmil: number };
+
+export interface ConductorResistance {
+  /** Resistance at the operating temperature, Ω/km. */
+  readonly ohmPerKm: number;
+  /** The table value before the temperature correction, in the table's own unit. */
+  readonly tableValue: number;
+  readonly tableUnit: 'ohm/km at 20 °C' | 'ohm/kft at 75 °C';
+  readonly table: 'IEC 60228 class 2' | 'NEC Chapter 9 Table 8';
+  readonly temperatureC: number;
+  /** R_T / R_table. */
+  readonly temperatureFactor: number;
+  /** The size in words, e.g. `95 mm²`, `4/0 AWG`, `250 kcmil`. */
+  readonly label: string;
+}
+
+/** The sizes each table has, for error messages. */
+export function tabulatedSizes(size: ConductorSize, material: ConductorMaterial): string[] {
+  if ('mm2' in size) return Object.keys(IEC_60228_CLASS_2[material]).map((k) => `${k}`);
+  return Object.keys(NEC_TABLE_8[material]).filter((k) => ('kcmil' in size ? k.endsWith('kcmil') : !k.endsWith('kcmil')));
+}
+
+/** Resistance of one conductor at `temperatureC`, or null when the size is not in the table. */
+export function conductorResistance(size: ConductorSize, material: ConductorMaterial, temperatureC?: number): ConductorResistance | null {
+  if ('mm2' in size) {
+    const value = IEC_60228_CLASS_2[material][String(size.mm2)];
+    if (value === undefined) return null;
+    const t = temperatureC ?? DEFAULT_CONDUCTOR_TEMPERATURE_C.metric;
+    const factor = 1 + ALPHA_20[material] * (t - 20);
+    return { ohmPerKm: value * factor, tableValue: value, tableUnit: 'ohm/km at 20 °C', table: 'IEC 60228 class 2', temperatureC: t, temperatureFactor: factor, label: `${size.mm2} mm²` };
+  }
+  const key = 'awg' in size ? size.awg : `${size.kcmil} kcmil`;
+  const value = NEC_TABLE_8[material][key];
+  if (value === undefined) return null;
+  const t = temperatureC ?? DEFAULT_CONDUCTOR_TEMPERATURE_C.northAmerican;
+  const factor = 1 + ALPHA_75[material] * (t - 75);
+  return {
+    ohmPerKm: value * factor * FEET_PER_KM / 1000,
+    tableValue: value,
+    tableUnit: 'ohm/kft at 75 °C',
+    table: 'NEC Chapter 9 Table 8',
+    temperatureC: t,
+    temperatureFactor: factor,
+    label: 'awg' in size ? `${size.awg} AWG` : key,
+  };
+}

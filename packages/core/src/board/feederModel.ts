@@ -1,0 +1,86 @@
+/**
+ * A feeder as written (conductors by r/x, by ohm/km and length, or by size from
+ * the cable library) → impedance per conductor. Assumes a validated spec.
+ */
+import { complex, scale, type ComplexValue } from '../complex.js';
+import type { ConductorSpec, FeederSpec, PerPhaseConductorSpec } from './boardSchema.js';
+import type { PhaseId } from './systemTopology.js';
+import { conductorResistance, DEFAULT_CABLE_REACTANCE_OHM_PER_KM, type ConductorMaterial, type ConductorSize } from './cableLibrary.js';
+
+const METRES_PER_FOOT = 0.3048;
+
+export const isPerPhaseLine = (line: ConductorSpec | PerPhaseConductorSpec): line is PerPhaseConductorSpec => 'A' in line || 'B' in line || 'C' in line;
+
+export const materialOf = (c: ConductorSpec): ConductorMaterial => (c.material === 'aluminium' || c.material === 'aluminum' ? 'aluminium' : 'copper');
+
+export function sizeOf(c: ConductorSpec): ConductorSize | null {
+  if (c.mm2 !== undefined) return { mm2: c.mm2 };
+  if (c.awg !== undefined) return { awg: c.awg };
+  if (c.kcmil !== undefined) return { kcmil: c.kcmil };
+  return null;
+}
+
+/** Route length of a conductor in metres: its own, else the feeder's; null when neither says. */
+export function lengthOf(c: ConductorSpec, feeder: FeederSpec | undefined): number | null {
+  if (c.lengthM !== undefined) return c.lengthM;
+  if (c.lengthFt !== undefined) return c.lengthFt * METRES_PER_FOOT;
+  if (feeder?.lengthM !== undefined) return feeder.lengthM;
+  if (feeder?.lengthFt !== undefined) return feeder.lengthFt * METRES_PER_FOOT;
+  return null;
+}
+
+/** Impedance of one conductor (of its parallel set), ohm. */
+export function conductorImpedance(c: ConductorSpec | undefined, feeder: FeederSpec | undefined): ComplexValue {
+  if (!c) return complex(0, 0);
+  const parallel = c.parallel ?? 1;
+  let z = complex(c.r ?? 0, c.x ?? 0);
+  const length = lengthOf(c, feeder);
+  const size = sizeOf(c);
+  if (size && length !== null) {
+    const r = conductorResistance(size, materialOf(c), c.temperatureC);
+    z = complex(((r?.ohmPerKm ?? Number.NaN) * length) / 1000, ((c.xOhmPerKm ?? DEFAULT_CABLE_REACTANCE_OHM_PER_KM) * length) / 1000);
+  } else if (c.rOhmPerKm !== undefined && length !== null) {
+    z = complex((c.rOhmPerKm * length) / 1000, ((c.xOhmPerKm ?? 0) * length) / 1000);
+  }
+  return scale(z, 1 / parallel);
+}
+
+/** The conductor in words, e.g. `95 mm² Cu ×2, 40 m`, or null when it is given as plain ohms. */
+export function describeConductor(c: ConductorSpec | undefined, feeder: FeederSpec | undefined): string | null {
+  if (!c) return null;
+  const size = sizeOf(c);
+  const length = lengthOf(c, feeder);
+  if (!size) return null;
+  const r = conductorResistance(size, materialOf(c), c.temperatureC);
+  const metal = materialOf(c) === 'copper' ? 'Cu' : 'Al';
+  const set = (c.parallel ?? 1) > 1 ? ` ×${c.parallel}` : '';
+  const len = length === null ? '' : c.lengthFt !== undefined || (c.lengthM === undefined && feeder?.lengthFt !== undefined) ? `, ${Math.round(length / METRES_PER_FOOT)} ft` : `, ${+length.toFixed(1)} m`;
+  return `${r?.label ?? '?'} ${metal}${set}${len} at ${r ? +r.temperatureC.toFixed(1) : '?'} °C`;
+}
+
+export interface FeederModel {
+  readonly lineImpedances: ComplexValue[];
+  readonly neutralImpedance: ComplexValue;
+  /** The smallest rating given for a line conductor (the weakest phase limits the feeder), A. */
+  readonly lineRatingA: number | null;
+  readonly neutralRatingA: number | null;
+  readonly description: string | null;
+}
+
+export function feederModel(feeder: FeederSpec | undefined, phases: readonly PhaseId[]): FeederModel {
+  const line = feeder?.line;
+  const perPhase = line && isPerPhaseLine(line) ? line : null;
+  const conductorOf = (p: PhaseId): ConductorSpec | undefined => (perPhase ? perPhase[p] : (line as ConductorSpec | undefined));
+  const ratings = phases.map((p) => conductorOf(p)?.ratingA).filter((a): a is number => a !== undefined);
+  const lineWords = [...new Set(phases.map((p) => describeConductor(conductorOf(p), feeder)))];
+  const neutralWords = describeConductor(feeder?.neutral, feeder);
+  const lineText = lineWords.length === 1 ? lineWords[0] : lineWords.every((w) => w !== null) ? phases.map((p) => `${p}: ${describeConductor(conductorOf(p), feeder)}`).join('; ') : null;
+  const description = lineText ? (neutralWords && neutralWords !== lineText ? `${lineText}; neutral ${neutralWords}` : lineText) : null;
+  return {
+    lineImpedances: phases.map((p) => conductorImpedance(conductorOf(p), feeder)),
+    neutralImpedance: conductorImpedance(feeder?.neutral, feeder),
+    lineRatingA: ratings.length ? Math.min(...ratings) : null,
+    neutralRatingA: feeder?.neutral?.ratingA ?? null,
+    description,
+  };
+}

@@ -1,0 +1,78 @@
+/**
+ * Cross-field rules of an installation file: the boards form one radial tree
+ * under one main board, and each board passes the board rules (its feeder and
+ * loads checked at their own paths).
+ */
+import { inputIssue, type InputIssue } from '../errors.js';
+import type { BoardSpec } from './boardSchema.js';
+import { BOARD_RULES } from './boardRules.js';
+import type { InstallationSpec } from './installationSchema.js';
+
+/** The board spec a board of the installation would be on its own (supply, its feeder, its loads). */
+export function boardSpecOf(spec: InstallationSpec, index: number): BoardSpec {
+  const b = spec.boards[index]!;
+  return {
+    name: b.name,
+    supply: spec.supply,
+    ...(b.feeder ? { feeder: b.feeder } : {}),
+    loads: b.loads,
+    ...(spec.studies ? { studies: spec.studies } : {}),
+  };
+}
+
+/** The same issue at a path under `prefix` (e.g. `loads[2].pf` → `boards[1].loads[2].pf`). */
+function moved(issue: InputIssue, prefix: string): InputIssue {
+  const path = `${prefix}.${issue.path}`;
+  return { ...issue, path, message: issue.message.startsWith(issue.path) ? `${path}${issue.message.slice(issue.path.length)}` : issue.message };
+}
+
+function ruleTree(spec: InstallationSpec): InputIssue[] {
+  const issues: InputIssue[] = [];
+  const index = new Map<string, number>();
+  spec.boards.forEach((b, i) => {
+    const first = index.get(b.name);
+    if (first !== undefined) issues.push(inputIssue('duplicate', `boards[${i}].name`, `a name not already used (boards[${first}] has it)`, b.name));
+    else index.set(b.name, i);
+  });
+  const mains = spec.boards.flatMap((b, i) => (b.fedFrom === undefined ? [i] : []));
+  if (mains.length === 0) issues.push(inputIssue('missing', 'boards', 'one main board with no fedFrom: the board the supply feeds'));
+  for (const i of mains.slice(1))
+    issues.push(
+      inputIssue('two_supplies', `boards[${i}].fedFrom`, `the board that feeds "${spec.boards[i]!.name}": only one board takes the supply (boards[${mains[0]}] "${spec.boards[mains[0]!]!.name}" already does)`),
+    );
+  const names = [...index.keys()];
+  spec.boards.forEach((b, i) => {
+    if (b.fedFrom === undefined) return;
+    if (!index.has(b.fedFrom)) {
+      issues.push(inputIssue('unknown_board', `boards[${i}].fedFrom`, `the name of a board in this installation: ${names.map((n) => JSON.stringify(n)).join(', ')}`, b.fedFrom));
+      return;
+    }
+    // Walk towards the supply; coming back to this board means a loop.
+    const seen = [b.name];
+    let at = b.fedFrom;
+    for (let steps = 0; steps <= spec.boards.length; steps++) {
+      if (at === b.name) {
+        issues.push(inputIssue('loop', `boards[${i}].fedFrom`, `a board nearer the supply (the boards feed each other in a loop: ${[...seen, at].join(' → ')})`, b.fedFrom));
+        return;
+      }
+      seen.push(at);
+      const next = spec.boards[index.get(at)!]?.fedFrom;
+      if (next === undefined || !index.has(next)) return;
+      at = next;
+    }
+  });
+  return issues;
+}
+
+function ruleBoards(spec: InstallationSpec): InputIssue[] {
+  return spec.boards.flatMap((_, i) => {
+    const own = boardSpecOf(spec, i);
+    // Supply rules are reported once, from the first board; the rest are the board's own.
+    return BOARD_RULES.flatMap((rule) => rule(own)).flatMap((issue) => {
+      if (issue.path.startsWith('supply')) return i === 0 ? [issue] : [];
+      return [moved(issue, `boards[${i}]`)];
+    });
+  });
+}
+
+export const INSTALLATION_RULES = [ruleTree, ruleBoards] as const;

@@ -1,0 +1,32 @@
+/** InstallationSpec → Installation (the solver's model). Assumes a validated spec. */
+import type { Installation, SubBoard } from './boardModel.js';
+import { normaliseBoard } from './normaliseBoard.js';
+import { feederModel } from './feederModel.js';
+import type { InstallationSpec } from './installationSchema.js';
+import { boardSpecOf } from './installationRules.js';
+
+/**
+ * Board numbers: 0 is the main board, then the other boards in file order.
+ * @returns the installation and, per board of the file, its board number.
+ */
+export function normaliseInstallation(spec: InstallationSpec): { installation: Installation; boardNumber: number[] } {
+  const mainIndex = spec.boards.findIndex((b) => b.fedFrom === undefined);
+  const boardNumber: number[] = [];
+  let next = 1;
+  spec.boards.forEach((_, i) => boardNumber.push(i === mainIndex ? 0 : next++));
+  const numberOf = new Map(spec.boards.map((b, i) => [b.name, boardNumber[i]!]));
+  const main = normaliseBoard(boardSpecOf(spec, mainIndex));
+  const subBoards: SubBoard[] = new Array(spec.boards.length - 1);
+  spec.boards.forEach((b, i) => {
+    if (i === mainIndex) return;
+    const feeder = feederModel(b.feeder, main.phases);
+    subBoards[boardNumber[i]! - 1] = {
+      name: b.name,
+      fedFrom: numberOf.get(b.fedFrom!)!,
+      feeder: { ...feeder, neutralOpen: false },
+      loads: normaliseBoard(boardSpecOf(spec, i)).loads,
+    };
+  });
+  const serviceFeederDescription = feederModel(spec.boards[mainIndex]!.feeder, main.phases).description;
+  return { installation: { name: spec.name ?? main.name, main, subBoards, serviceFeederDescription }, boardNumber };
+}

@@ -1,0 +1,60 @@
+/**
+ * Moving between a board and the installation it belongs to. Every board a
+ * study works on is a `Board`; a sub-board's `Board` carries the supply's
+ * system and EMFs (so voltage drops count from the source), its own feeder in
+ * the line and neutral fields, no source impedance of its own, and its place in
+ * the installation — which is how a correction sized on a sub-board re-solves
+ * the whole installation.
+ */
+import { add, scale, ZERO, type ComplexValue } from '../complex.js';
+import type { Board, Installation } from '../board/boardModel.js';
+
+const mean = (zs: readonly ComplexValue[]) => scale(zs.reduce(add, ZERO), 1 / Math.max(zs.length, 1));
+
+/** The installation a board is part of, with the board's own (possibly edited) loads and feeder in place. */
+export function installationOf(board: Board): { installation: Installation; boardIndex: number } {
+  const place = board.installation;
+  if (!place) return { installation: { name: board.name, main: board, subBoards: [] }, boardIndex: 0 };
+  const { installation, boardIndex } = place;
+  if (boardIndex === 0) {
+    const { installation: _place, ...main } = board;
+    return { installation: { ...installation, main }, boardIndex };
+  }
+  const subBoards = installation.subBoards.map((sb, i) =>
+    i + 1 !== boardIndex
+      ? sb
+      : {
+          ...sb,
+          loads: board.loads,
+          feeder: {
+            ...sb.feeder,
+            lineImpedances: board.lineImpedances ?? board.phases.map(() => board.lineImpedance),
+            neutralImpedance: board.neutralImpedance,
+            neutralOpen: board.neutralOpen,
+          },
+        },
+  );
+  return { installation: { ...installation, subBoards }, boardIndex };
+}
+
+/** Board number `index` of an installation as a `Board` (0 = the main board). */
+export function boardOfInstallation(installation: Installation, index: number): Board {
+  const main = installation.main;
+  const place = installation.subBoards.length > 0 ? { installation: { ...installation, main }, boardIndex: index } : undefined;
+  if (index === 0) return place ? { ...main, installation: place } : main;
+  const sb = installation.subBoards[index - 1]!;
+  const { sourceImpedances: _s, sourceStarImpedance: _z, openDeltaCorner: _o, lineImpedances: _l, installation: _i, ...supply } = main;
+  return {
+    ...supply,
+    name: sb.name,
+    sourceImpedance: ZERO,
+    lineImpedance: mean(sb.feeder.lineImpedances),
+    lineImpedances: sb.feeder.lineImpedances,
+    neutralImpedance: sb.feeder.neutralImpedance,
+    neutralOpen: sb.feeder.neutralOpen,
+    lineRatingA: sb.feeder.lineRatingA,
+    neutralRatingA: sb.feeder.neutralRatingA,
+    loads: sb.loads,
+    installation: place!,
+  };
+}

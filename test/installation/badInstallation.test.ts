@@ -1,0 +1,91 @@
+/**
+ * Malformed installations and unequal-impedance supplies: each gives an
+ * InputError naming the field (code and path exact, wording loosely).
+ */
+import { describe, expect, it } from 'vitest';
+import { InputError, solveBoard, solveInstallation, validateBoard, validateInstallation } from '@trivar/core';
+
+type Mutable = Record<string, any>;
+const installation = () => ({
+  supply: { system: 'three-phase-4wire', voltage: { lineToLine: 400 }, frequencyHz: 50 },
+  boards: [
+    { name: 'Main', loads: [{ name: 'lift', connection: 'ABC-delta', kW: 7, pf: 0.8 }] },
+    { name: 'Floor 1', fedFrom: 'Main', feeder: { lengthM: 12, line: { mm2: 25 }, neutral: { mm2: 25 } }, loads: [{ name: 'flat 1', connection: 'A-N', kW: 5, pf: 0.95 }] },
+    { name: 'Floor 2', fedFrom: 'Floor 1', feeder: { lengthM: 3, line: { mm2: 16 }, neutral: { mm2: 16 } }, loads: [] },
+  ],
+});
+const editInstallation = (f: (b: Mutable) => void) => {
+  const b = installation() as Mutable;
+  f(b);
+  return b;
+};
+const board = () => ({
+  supply: { system: 'three-phase-3wire', voltage: { lineToLine: 400 }, frequencyHz: 50 },
+  loads: [{ name: 'press', connection: 'ABC-delta', kW: 20, pf: 0.85 }],
+});
+const editBoard = (f: (b: Mutable) => void) => {
+  const b = board() as Mutable;
+  f(b);
+  return b;
+};
+
+const installationCases: [string, unknown, string, string, RegExp][] = [
+  ['a feeder to an unknown board', editInstallation((b) => (b.boards[2].fedFrom = 'Floor 9')), 'unknown_board', 'boards[2].fedFrom', /"Main", "Floor 1", "Floor 2"/],
+  ['a loop in the tree', editInstallation((b) => {
+    b.boards[1].fedFrom = 'Floor 2';
+  }), 'loop', 'boards[1].fedFrom', /Floor 1 → Floor 2 → Floor 1/],
+  ['a board feeding itself', editInstallation((b) => (b.boards[2].fedFrom = 'Floor 2')), 'loop', 'boards[2].fedFrom', /loop/],
+  ['two boards fed from the supply', editInstallation((b) => delete b.boards[2].fedFrom), 'two_supplies', 'boards[2].fedFrom', /only one board takes the supply/],
+  ['no main board', editInstallation((b) => (b.boards[0].fedFrom = 'Floor 2')), 'missing', 'boards', /one main board/],
+  ['duplicate board names', editInstallation((b) => (b.boards[2].name = 'Floor 1')), 'duplicate', 'boards[2].name', /boards\[1\]/],
+  ['an unknown conductor size', editInstallation((b) => (b.boards[1].feeder.line.mm2 = 17)), 'unknown_size', 'boards[1].feeder.line.mm2', /16, 25/],
+  ['an unknown AWG size', editInstallation((b) => (b.boards[1].feeder.line = { awg: '5' })), 'unknown_size', 'boards[1].feeder.line.awg', /4\/0/],
+  ['aluminium below the table', editInstallation((b) => (b.boards[1].feeder.neutral = { mm2: 4, material: 'aluminium' })), 'unknown_size', 'boards[1].feeder.neutral.mm2', /aluminium/],
+  ['a size without a length', editInstallation((b) => delete b.boards[1].feeder.lengthM), 'missing', 'boards[1].feeder.line.lengthM', /length/],
+  ['a size and ohm/km both', editInstallation((b) => (b.boards[1].feeder.line.rOhmPerKm = 0.7)), 'conflict', 'boards[1].feeder.line', /not both/],
+  ['a bad load on a sub-board', editInstallation((b) => (b.boards[1].loads[0].pf = 1.5)), 'out_of_range', 'boards[1].loads[0].pf', /1/],
+  ['a missing phase in a per-phase feeder', editInstallation((b) => (b.boards[1].feeder.line = { A: { mm2: 25 }, B: { mm2: 25 } })), 'missing', 'boards[1].feeder.line.C', /every phase/],
+  ['both boards and loads', editInstallation((b) => (b.loads = [])), 'unknown_key', 'loads', /documented keys/],
+];
+
+const supplyCases: [string, unknown, string, string][] = [
+  ['open delta with three units', editBoard((b) => (b.supply.openDelta = { 'A-B': { r: 0.01, x: 0.02 }, 'B-C': { r: 0.01, x: 0.02 }, 'C-A': { r: 0.01, x: 0.02 } })), 'out_of_range', 'supply.openDelta'],
+  ['open delta on a 4-wire supply', editBoard((b) => {
+    b.supply.system = 'three-phase-4wire';
+    b.supply.openDelta = { 'A-B': { r: 0.01, x: 0.02 }, 'B-C': { r: 0.01, x: 0.02 } };
+  }), 'not_applicable', 'supply.openDelta'],
+  ['zero sequence on a 3-wire supply', editBoard((b) => {
+    b.supply.impedance = { r: 0.01, x: 0.02 };
+    b.supply.zeroSequence = { r: 0.03, x: 0.05 };
+  }), 'not_applicable', 'supply.zeroSequence'],
+  ['zero sequence without Z1', editBoard((b) => {
+    b.supply.system = 'three-phase-4wire';
+    b.supply.zeroSequence = { r: 0.03, x: 0.05 };
+  }), 'missing', 'supply.impedance'],
+  ['bank missing a unit', editBoard((b) => (b.supply.bank = { A: { kVA: 50, impedancePercent: 3, xOverR: 2 }, B: { kVA: 50, impedancePercent: 3, xOverR: 2 } })), 'missing', 'supply.bank.C'],
+  ['bank and transformer both', editBoard((b) => {
+    b.supply.transformer = { kVA: 150, impedancePercent: 4, xOverR: 3 };
+    b.supply.bank = { A: { r: 0.01, x: 0.01 }, B: { r: 0.01, x: 0.01 }, C: { r: 0.01, x: 0.01 } };
+  }), 'conflict', 'supply'],
+  ['per-phase impedance with a phase missing', editBoard((b) => (b.supply.impedance = { A: { r: 0.01, x: 0.02 }, C: { r: 0.01, x: 0.02 } })), 'missing', 'supply.impedance.B'],
+  ['a negative per-phase resistance', editBoard((b) => (b.supply.impedance = { A: { r: -0.01, x: 0.02 }, B: { r: 0.01, x: 0.02 }, C: { r: 0.01, x: 0.02 } })), 'out_of_range', 'supply.impedance.A.r'],
+];
+
+describe('bad installation input', () => {
+  it.each(installationCases)('%s', (_, input, code, path, wording) => {
+    const result = validateInstallation(input);
+    expect(result.ok).toBe(false);
+    if (result.ok) return;
+    const issue = result.issues.find((i) => i.path === path);
+    expect(issue, JSON.stringify(result.issues)).toMatchObject({ code, path });
+    expect(issue!.message).toMatch(wording);
+    expect(() => solveInstallation(input)).toThrow(InputError);
+  });
+  it.each(supplyCases)('%s', (_, input, code, path) => {
+    const result = validateBoard(input);
+    expect(result.ok).toBe(false);
+    if (result.ok) return;
+    expect(result.issues, JSON.stringify(result.issues)).toContainEqual(expect.objectContaining({ code, path }));
+    expect(() => solveBoard(input)).toThrow(InputError);
+  });
+});

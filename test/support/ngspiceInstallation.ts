@@ -1,0 +1,103 @@
+/**
+ * An installation written as a SPICE netlist from its physical parts, never from
+ * core's node equations: per phase an EMF (from the source star point, or for an
+ * open delta from the earthed corner), the source winding and the service feeder
+ * as separate series elements; a zero-sequence impedance as the star point's
+ * return to the earthed neutral terminal (node 0); every sub-board feeder
+ * conductor, phase by phase and the neutral, as its own series element and
+ * ammeter — a conductor of zero impedance is an ammeter alone, so boards core
+ * merges into one node stay separate nodes here; every load branch an ammeter and
+ * its element (alternately series R + jX and parallel G ‖ jB).
+ */
+import type { ComplexValue, Installation, InstallationSolution } from '@trivar/core';
+import { cAbs, cInv, cSub } from './complexMath.js';
+import { seriesElements, parallelElements, type Probe } from './ngspice.js';
+
+const num = (x: number) => x.toExponential(16);
+const isZero = (z: ComplexValue) => z.re === 0 && z.im === 0;
+const lower = (p: string) => p.toLowerCase();
+
+export function buildInstallationNetlist(installation: Installation, solution: InstallationSolution): { netlist: string; probes: Probe[] } {
+  const main = installation.main;
+  const omega = 2 * Math.PI * main.frequencyHz;
+  const lines = [`* ${installation.name}: ${installation.subBoards.length + 1} boards`];
+  const probes: Probe[] = [];
+  const bus = (b: number, p: string) => `b${b}_${lower(p)}`;
+  const bar = (b: number) => `b${b}_n`;
+  const series = (name: string, from: string, to: string, z: ComplexValue) => (isZero(z) ? [`V${name} ${from} ${to} DC 0`] : seriesElements(name, from, to, z, omega));
+  const voltage = (b: number, node: number | undefined): ComplexValue => {
+    if (node === undefined || node < 0) return { re: 0, im: 0 };
+    return solution.boards[b]!.nodeVoltages[node]!;
+  };
+  // Source and service feeder.
+  const corner = main.openDeltaCorner ? main.phases.indexOf(main.openDeltaCorner) : -1;
+  let star = '0';
+  if (main.sourceStarImpedance && !isZero(main.sourceStarImpedance) && corner < 0) {
+    star = 'sp';
+    lines.push(...seriesElements('ZSTAR', star, '0', main.sourceStarImpedance, omega));
+  }
+  main.phases.forEach((phase, k) => {
+    const p = lower(phase);
+    let at: string;
+    if (k === corner) at = '0';
+    else {
+      const e = corner >= 0 ? cSub(main.emf[k]!, main.emf[corner]!) : main.emf[k]!;
+      lines.push(`VE_${p} s_${p} ${star} DC 0 AC ${num(cAbs(e))} ${num((Math.atan2(e.im, e.re) * 180) / Math.PI)}`);
+      const winding = main.sourceImpedances?.[k] ?? main.sourceImpedance;
+      lines.push(...series(`W_${p}`, `s_${p}`, `t_${p}`, winding));
+      at = `t_${p}`;
+    }
+    lines.push(...series(`F0_${p}`, at, `f0_${p}`, main.lineImpedances?.[k] ?? main.lineImpedance));
+    lines.push(`VI0_${p} f0_${p} ${bus(0, phase)} DC 0`);
+    probes.push({ vector: `i(vi0_${p})`, label: `service line ${phase} current`, kind: 'current', core: solution.boards[0]!.lineCurrents[k]! });
+  });
+  if (main.hasNeutral && !main.neutralOpen) {
+    lines.push(`VI0_N ${bar(0)} r0_n DC 0`, ...series('F0_N', 'r0_n', '0', main.neutralImpedance));
+    probes.push({ vector: 'i(vi0_n)', label: 'service neutral current', kind: 'current', core: solution.boards[0]!.neutralCurrent! });
+  }
+  // Sub-board feeders, conductor by conductor.
+  installation.subBoards.forEach((sb, i) => {
+    const b = i + 1;
+    const s = solution.boards[b]!;
+    main.phases.forEach((phase, k) => {
+      const p = lower(phase);
+      lines.push(...series(`F${b}_${p}`, bus(sb.fedFrom, phase), `e${b}_${p}`, sb.feeder.lineImpedances[k]!));
+      lines.push(`VI${b}_${p} e${b}_${p} ${bus(b, phase)} DC 0`);
+      probes.push({ vector: `i(vi${b}_${p})`, label: `${sb.name} feeder line ${phase} current`, kind: 'current', core: s.lineCurrents[k]! });
+    });
+    if (main.hasNeutral && !sb.feeder.neutralOpen) {
+      lines.push(`VI${b}_N ${bar(b)} r${b}_n DC 0`, ...series(`F${b}_N`, `r${b}_n`, bar(sb.fedFrom), sb.feeder.neutralImpedance));
+      probes.push({ vector: `i(vi${b}_n)`, label: `${sb.name} feeder neutral current`, kind: 'current', core: s.neutralCurrent! });
+    }
+  });
+  // Loads.
+  const stars = new Set<string>();
+  solution.boards.forEach((s, b) => {
+    const topo = s.topology;
+    s.board.phases.forEach((phase) => probes.push({ vector: `v(${bus(b, phase)})`, label: `${s.board.name} phase ${phase} voltage`, kind: 'voltage', core: voltage(b, topo.terminalNode.get(phase)) }));
+    const nodeOf = (t: string) => (t === 'N' ? bar(b) : t.startsWith('star:') ? `b${b}_s${t.slice(5)}` : bus(b, t));
+    let barUsed = false;
+    s.board.loads.forEach((load, li) =>
+      load.branches.forEach((br, bi) => {
+        const state = s.branches[li]![bi]!;
+        if (!state.energised) return;
+        const name = `L${b}_${li}_${bi}`;
+        const mid = `m${b}_${li}_${bi}`;
+        lines.push(`VI${name} ${nodeOf(br.from)} ${mid} DC 0`);
+        const z = cInv(state.admittance);
+        lines.push(...((li + bi) % 2 === 0 ? seriesElements(name, mid, nodeOf(br.to), z, omega) : parallelElements(name, mid, nodeOf(br.to), state.admittance, omega)));
+        probes.push({ vector: `i(vi${name.toLowerCase()})`, label: `${s.board.name} load ${load.name} ${br.from}→${br.to} current`, kind: 'current', core: state.current });
+        for (const t of [br.from, br.to]) {
+          if (t.startsWith('star:') && !stars.has(`${b}:${t}`)) {
+            stars.add(`${b}:${t}`);
+            probes.push({ vector: `v(${nodeOf(t)})`, label: `${s.board.name} star point ${t}`, kind: 'voltage', core: voltage(b, topo.terminalNode.get(t as never)) });
+          }
+          if (t === 'N') barUsed = true;
+        }
+      }),
+    );
+    const feedsNeutral = main.hasNeutral && (b === 0 ? !main.neutralOpen : !installation.subBoards[b - 1]!.feeder.neutralOpen);
+    if (main.hasNeutral && (barUsed || feedsNeutral)) probes.push({ vector: `v(${bar(b)})`, label: `${s.board.name} neutral bar voltage`, kind: 'voltage', core: voltage(b, topo.neutralNode) });
+  });
+  return { netlist: lines.join('\n'), probes };
+}
