@@ -72,9 +72,12 @@ export function solveFixedNetwork(board: Board, input: FixedNetworkInput): Netwo
       return { voltage, current: add(mul(admittance, voltage), sourceOf(l, k) ?? ZERO), admittance, energised: true };
     }),
   );
-  // Behind a line impedance the line current is Y·(E − V_bus); an ideal source feeds its bus by KCL.
+  // Behind one common line impedance, with the source star point at the reference, the line
+  // current is Y·(E − V_bus). Unequal phase impedances or a zero-sequence star-point return break
+  // that shortcut (the star point floats), so there, as for an ideal source, it is found by KCL at the bus.
+  const commonLine = topo.lineAdmittance && !board.sourceImpedances && !board.sourceStarImpedance;
   const lineCurrents = topo.busNode.map((bus, k) => {
-    if (topo.lineAdmittance) return mul(topo.lineAdmittance, sub(board.emf[k]!, nodeVoltages[bus]!));
+    if (commonLine) return mul(topo.lineAdmittance, sub(board.emf[k]!, nodeVoltages[bus]!));
     let out = ZERO;
     board.loads.forEach((load, l) =>
       load.branches.forEach((b, i) => {
@@ -88,7 +91,7 @@ export function solveFixedNetwork(board: Board, input: FixedNetworkInput): Netwo
   let neutralCurrent: ComplexValue | null = null;
   if (board.hasNeutral) {
     if (board.neutralOpen) neutralCurrent = ZERO;
-    else if (topo.neutralAdmittance) neutralCurrent = mul(topo.neutralAdmittance, voltageAt(topo.neutralNode!) ?? ZERO);
+    else if (topo.neutralAdmittance && !board.sourceStarImpedance) neutralCurrent = mul(topo.neutralAdmittance, voltageAt(topo.neutralNode!) ?? ZERO);
     else {
       let total = ZERO;
       board.loads.forEach((load, l) =>
