@@ -76,6 +76,25 @@ export function parallelElements(name: string, from: string, to: string, y: Comp
 const isZero = (z: ComplexValue) => z.re === 0 && z.im === 0;
 
 /**
+ * One phase's supply path: the EMF at node s_<p>, the source and feeder impedances in series, and
+ * an ammeter VI_<p> into bus_<p> (i(VI) flows from the source side into the board).
+ */
+export function supplyPath(board: Board, p: string, emf: ComplexValue, omega: number): string[] {
+  const lines = [`VE_${p} s_${p} 0 DC 0 AC ${num(cAbs(emf))} ${num((Math.atan2(emf.im, emf.re) * 180) / Math.PI)}`];
+  let at = `s_${p}`;
+  if (!isZero(board.sourceImpedance)) {
+    lines.push(...seriesElements(`S_${p}`, at, `t_${p}`, board.sourceImpedance, omega));
+    at = `t_${p}`;
+  }
+  if (!isZero(board.lineImpedance)) {
+    lines.push(...seriesElements(`F_${p}`, at, `f_${p}`, board.lineImpedance, omega));
+    at = `f_${p}`;
+  }
+  lines.push(`VI_${p} ${at} bus_${p} DC 0`);
+  return lines;
+}
+
+/**
  * The netlist of a solved board and the probes to compare. `element(l, b)`
  * says how to write branch b of load l.
  */
@@ -91,18 +110,7 @@ export function buildNetlist(
   board.phases.forEach((phase, k) => {
     const p = PHASE_NODE[phase];
     const e = board.emf[k]!;
-    lines.push(`VE_${p} s_${p} 0 DC 0 AC ${num(cAbs(e))} ${num((Math.atan2(e.im, e.re) * 180) / Math.PI)}`);
-    let at = `s_${p}`;
-    if (!isZero(board.sourceImpedance)) {
-      lines.push(...seriesElements(`S_${p}`, at, `t_${p}`, board.sourceImpedance, omega));
-      at = `t_${p}`;
-    }
-    if (!isZero(board.lineImpedance)) {
-      lines.push(...seriesElements(`F_${p}`, at, `f_${p}`, board.lineImpedance, omega));
-      at = `f_${p}`;
-    }
-    // Ammeter: i(VI) is the current from its + node (source side) to its − node (board).
-    lines.push(`VI_${p} ${at} bus_${p} DC 0`);
+    lines.push(...supplyPath(board, p, e, omega));
     probes.push({ vector: `i(vi_${p})`, label: `line ${phase} current`, kind: 'current', core: solution.lineCurrents[k]! });
     probes.push({ vector: `v(bus_${p})`, label: `phase ${phase} bus voltage`, kind: 'voltage', core: voltageAt(solution, phase) });
     const sourceNode = solution.topology.sourceNode[k]!;

@@ -15,7 +15,7 @@ import { readFileSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import type { Board, ComplexValue, HarmonicModel, NetworkSolution } from '@trivar/core';
 import { c, cAbs, cInv } from './complexMath.js';
-import { parallelElements, seriesElements } from './ngspice.js';
+import { parallelElements, seriesElements, supplyPath } from './ngspice.js';
 
 const num = (x: number) => x.toExponential(16);
 const PHASE_NODE = { A: 'a', B: 'b', C: 'c' } as const;
@@ -41,17 +41,7 @@ export function harmonicNetlist(fundamental: NetworkSolution, model: HarmonicMod
   board.phases.forEach((phase, k) => {
     const p = PHASE_NODE[phase];
     const e = options.emf[k]!;
-    lines.push(`VE_${p} s_${p} 0 DC 0 AC ${num(cAbs(e))} ${num(deg(e))}`);
-    let at = `s_${p}`;
-    if (!isZero(board.sourceImpedance)) {
-      lines.push(...seriesElements(`S_${p}`, at, `t_${p}`, board.sourceImpedance, omega));
-      at = `t_${p}`;
-    }
-    if (!isZero(board.lineImpedance)) {
-      lines.push(...seriesElements(`F_${p}`, at, `f_${p}`, board.lineImpedance, omega));
-      at = `f_${p}`;
-    }
-    lines.push(`VI_${p} ${at} bus_${p} DC 0`);
+    lines.push(...supplyPath(board, p, e, omega));
   });
   if (board.hasNeutral && !board.neutralOpen) {
     let at = 'nbar';

@@ -33,7 +33,7 @@ export interface FixedNetworkInput {
  * @throws {NumericalError} when the network is singular.
  */
 export function solveFixedNetwork(board: Board, input: FixedNetworkInput): NetworkSolution {
-  const { topology: topo, network: net } = compileBoard(board);
+  const { topology: topo, network: net, installation, boardIndex } = compileBoard(board);
   const sourceOf = (l: number, k: number) => input.branchSources?.[l]?.[k] ?? null;
   let index = 0;
   board.loads.forEach((load, l) =>
@@ -72,12 +72,13 @@ export function solveFixedNetwork(board: Board, input: FixedNetworkInput): Netwo
       return { voltage, current: add(mul(admittance, voltage), sourceOf(l, k) ?? ZERO), admittance, energised: true };
     }),
   );
-  // Behind one common line impedance, with the source star point at the reference, the line
-  // current is Y·(E − V_bus). Unequal phase impedances or a zero-sequence star-point return break
-  // that shortcut (the star point floats), so there, as for an ideal source, it is found by KCL at the bus.
-  const commonLine = topo.lineAdmittance && !board.sourceImpedances && !board.sourceStarImpedance;
+  // Behind a line impedance the main board's line currents are its supply sources' currents, read
+  // as the general solve reads them (right behind a zero-sequence star-point return too). An ideal
+  // source, or a board without its own source, feeds its bus by KCL over the branches, whose
+  // currents include the injections the compiled sources do not see.
+  const sourceCurrents = boardIndex === 0 && topo.lineAdmittance ? net.sourceCurrents() : null;
   const lineCurrents = topo.busNode.map((bus, k) => {
-    if (commonLine) return mul(topo.lineAdmittance, sub(board.emf[k]!, nodeVoltages[bus]!));
+    if (sourceCurrents) return sourceCurrents[installation.layout.mainSources[k]!]!;
     let out = ZERO;
     board.loads.forEach((load, l) =>
       load.branches.forEach((b, i) => {
