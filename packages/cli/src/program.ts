@@ -3,7 +3,7 @@ import { Command, CommanderError, InvalidArgumentError, Option } from 'commander
 import { EXIT, exitCodeFor, messageFor } from './exitCodes.js';
 import { DEFAULT_MAX_INPUT_MB, type CliIo } from './io.js';
 import { runSolve } from './commands/solve.js';
-import { runSchema } from './commands/schema.js';
+import { runSchema, type SchemaCommandOptions } from './commands/schema.js';
 import { outcomeMeetsTarget, runCorrect, type CorrectCommandOptions } from './commands/correct.js';
 import { runProfile, type ProfileCommandOptions } from './commands/profile.js';
 import { runHarmonics } from './commands/harmonics.js';
@@ -295,7 +295,8 @@ export function createProgram(io: CliIo, outcome: RunOutcome = { exitCode: EXIT.
   program
     .command('schema')
     .description('print the JSON Schema of board files (for editor completion and checking)')
-    .action(() => runSchema(io));
+    .option('--installation', 'the schema of installation files (boards: fed from each other) instead')
+    .action((opts: SchemaCommandOptions) => runSchema(io, opts));
 
   return program;
 }

@@ -26,7 +26,7 @@ export { boardSchema, PHYSICAL_RANGES } from './board/boardSchema.js';
 export type { BoardValidation } from './board/validateBoard.js';
 export { validateBoard, parseBoard, readBoardText, parseBoardText } from './board/validateBoard.js';
 export { BOARD_TEXT_LIMITS } from './board/readBoardText.js';
-export { boardJsonSchema } from './board/boardJsonSchema.js';
+export { boardJsonSchema, installationJsonSchema } from './board/boardJsonSchema.js';
 export { acceptedConnections } from './board/boardRules.js';
 export type { Board, BoardLoad, LoadBranch, Terminal, ZipFractions, PhaseId } from './board/boardModel.js';
 export { normaliseBoard } from './board/normaliseBoard.js';
@@ -215,3 +215,15 @@ export type { ScenarioReading, ScenarioResult } from './profile/studyScenarios.j
 export { studyScenarios } from './profile/studyScenarios.js';
 export type { SwitchingFromBank } from './profile/switchingFromBank.js';
 export { switchingFromBank } from './profile/switchingFromBank.js';
+// Regional conventions: phase names, voltage notation, voltage limits, region wording.
+export type { PhaseNaming } from './conventions/phaseNames.js';
+export { PHASE_NAMINGS, labelIn, phaseLabels } from './conventions/phaseNames.js';
+export type { VoltageNotation, NotationReading } from './conventions/voltageNotation.js';
+export { readVoltageNotation, writeVoltageNotation, NOTATION_RATIO_TOLERANCE } from './conventions/voltageNotation.js';
+export type { VoltageLimits, VoltageLimitPreset, VoltageLimitPresetName } from './conventions/voltageLimits.js';
+export { VOLTAGE_LIMIT_PRESETS, judgeVoltage, bandWords } from './conventions/voltageLimits.js';
+export type { Region, RegionBasis } from './conventions/region.js';
+export { inferRegion } from './conventions/region.js';
+export type { BoardConventions } from './conventions/boardConventions.js';
+export { conventionsOf } from './conventions/boardConventions.js';
+export type { VoltageCheck, VoltageExtreme } from './analysis/voltageCheck.js';

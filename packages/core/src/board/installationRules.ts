@@ -14,6 +14,7 @@ export function boardSpecOf(spec: InstallationSpec, index: number): BoardSpec {
   return {
     name: b.name,
     supply: spec.supply,
+    ...(spec.conventions ? { conventions: spec.conventions } : {}),
     ...(b.feeder ? { feeder: b.feeder } : {}),
     loads: b.loads,
     ...(spec.studies ? { studies: spec.studies } : {}),

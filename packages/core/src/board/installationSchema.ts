@@ -6,6 +6,7 @@
  */
 import * as z from 'zod';
 import { correctionSpecSchema } from '../correction/correctionSpec.js';
+import { conventionsSchema } from '../conventions/conventionsSchema.js';
 import { feederSchema, loadSchema, studiesSchema, supplySchema } from './boardSchema.js';
 
 export const installationBoardSchema = z.strictObject({
@@ -21,6 +22,7 @@ export const installationSchema = z
     name: z.string().min(1).optional().describe('installation name'),
     note: z.string().optional().describe('free text'),
     supply: supplySchema,
+    conventions: conventionsSchema.optional(),
     boards: z.array(installationBoardSchema).min(1).describe('the boards, in any order; exactly one has no fedFrom'),
     studies: studiesSchema.optional(),
     correction: correctionSpecSchema

@@ -7,6 +7,8 @@ import { allInputIssues } from '../_internal/zodIssues.js';
 import { boardSchema, feederSchema, loadSchema, supplySchema, type BoardSpec, type LoadSpec } from './boardSchema.js';
 import { BOARD_RULES, partialBoardIssues, type BoardParts } from './boardRules.js';
 import { readBoardText } from './readBoardText.js';
+import { readTradeSpellings } from '../conventions/readTradeSpellings.js';
+import { inFileNaming } from '../conventions/issueNaming.js';
 
 export { readBoardText };
 
@@ -23,13 +25,15 @@ export function validateBoard(input: unknown): BoardValidation {
       ok: false,
       issues: [inputIssue('installation', 'boards', 'a single board (supply, feeder, loads); this is an installation file (boards:), which `trivar solve` and solveInstallation read', 'an installation')],
     };
-  const parsed = boardSchema.safeParse(input);
-  const shapeIssues = allInputIssues(parsed.success ? [] : parsed.error.issues, input);
+  const spelt = readTradeSpellings(input);
+  const naming = spelt.spellings.naming;
+  const parsed = boardSchema.safeParse(spelt.input);
+  const shapeIssues = allInputIssues(parsed.success ? [] : parsed.error.issues, spelt.input);
   if (parsed.success && shapeIssues.length === 0) {
-    const issues = BOARD_RULES.flatMap((rule) => rule(parsed.data));
+    const issues = [...spelt.issues, ...inFileNaming(BOARD_RULES.flatMap((rule) => rule(parsed.data)), naming)];
     return issues.length ? { ok: false, issues } : { ok: true, board: parsed.data };
   }
-  return { ok: false, issues: [...shapeIssues, ...partialBoardIssues(boardParts(input))] };
+  return { ok: false, issues: [...spelt.issues, ...inFileNaming([...shapeIssues, ...partialBoardIssues(boardParts(spelt.input))], naming)] };
 }
 
 /** Each part of a board that passes the schema on its own (for the rules that can still run). */

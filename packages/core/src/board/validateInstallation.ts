@@ -7,6 +7,8 @@ import { inputIssuesFromZod } from '../_internal/zodIssues.js';
 import { validateBoard } from './validateBoard.js';
 import { installationSchema, type InstallationSpec } from './installationSchema.js';
 import { INSTALLATION_RULES } from './installationRules.js';
+import { readTradeSpellings } from '../conventions/readTradeSpellings.js';
+import { inFileNaming } from '../conventions/issueNaming.js';
 
 export type InstallationValidation = { ok: true; installation: InstallationSpec } | { ok: false; issues: InputIssue[] };
 
@@ -21,22 +23,25 @@ export function validateInstallation(input: unknown): InstallationValidation {
   if (!isInstallationInput(input)) {
     const board = validateBoard(input);
     if (!board.ok) return board;
-    const { feeder, loads, name, supply, studies, correction, note } = board.board;
+    const { feeder, loads, name, supply, studies, correction, note, conventions } = board.board;
     return {
       ok: true,
       installation: {
         ...(name ? { name } : {}),
         ...(note ? { note } : {}),
         supply,
+        ...(conventions ? { conventions } : {}),
         boards: [{ name: name ?? 'board', loads, ...(feeder ? { feeder } : {}) }],
         ...(studies ? { studies } : {}),
         ...(correction ? { correction } : {}),
       },
     };
   }
-  const parsed = installationSchema.safeParse(input);
-  if (!parsed.success) return { ok: false, issues: inputIssuesFromZod(parsed.error.issues, input) };
-  const issues = INSTALLATION_RULES.flatMap((rule) => rule(parsed.data));
+  const spelt = readTradeSpellings(input);
+  const parsed = installationSchema.safeParse(spelt.input);
+  const naming = spelt.spellings.naming;
+  if (!parsed.success) return { ok: false, issues: [...spelt.issues, ...inFileNaming(inputIssuesFromZod(parsed.error.issues, spelt.input), naming)] };
+  const issues = [...spelt.issues, ...inFileNaming(INSTALLATION_RULES.flatMap((rule) => rule(parsed.data)), naming)];
   return issues.length ? { ok: false, issues } : { ok: true, installation: parsed.data };
 }
 
