@@ -9,8 +9,8 @@ import { terminalVoltage, type NetworkSolution } from '../network/solveNetwork.j
 import { sequenceComponents } from './symmetricalComponents.js';
 import { deviationFromAveragePercent, motorDeratingFactor } from './unbalanceIndices.js';
 import { boardPowerDefinitions } from './powerDefinitions.js';
-import { conventionsOf } from '../conventions/boardConventions.js';
-import { labelIn } from '../conventions/phaseNames.js';
+import { conventionsOf } from '../board/conventions/boardConventions.js';
+import { labelIn } from '../board/conventions/phaseNames.js';
 import { checkVoltages } from './voltageCheck.js';
 import { boardWarnings, GENERAL_CAUTION, NEUTRAL_CAUTION } from './boardWarnings.js';
 import { readLoads } from './readLoads.js';

@@ -11,7 +11,7 @@ import type { Phasor } from '../complex.js';
 import type { PhaseId } from '../board/boardModel.js';
 import type { SequenceSet } from './symmetricalComponents.js';
 import type { BoardPowerDefinitions } from './powerDefinitions.js';
-import type { BoardConventions } from '../conventions/boardConventions.js';
+import type { BoardConventions } from '../board/conventions/boardConventions.js';
 import type { VoltageCheck } from './voltageCheck.js';
 
 /** `none` when no power flows (no PF). */

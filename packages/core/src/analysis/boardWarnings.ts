@@ -3,7 +3,7 @@
  * All wording for board results lives here.
  */
 import type { BoardWarning, NeutralReading, PhaseReading, LoadReading, TransformerReading, UnbalanceReading, LineToLineReading } from './boardResult.js';
-import { bandWords, judgeVoltage, presetLimits, type VoltageLimits } from '../conventions/voltageLimits.js';
+import { bandWords, judgeVoltage, presetLimits, type VoltageLimits } from '../board/conventions/voltageLimits.js';
 
 export const WARNING_THRESHOLDS = {
   /** Voltage unbalance factor above which supply-quality standards start to object (EN 50160, IEC 61000-2-2: 2 %). */

@@ -4,7 +4,7 @@
  * voltage warnings come from the same judgement of the printed figures, so they never
  * disagree with each other or with the percentages beside them.
  */
-import { judgeVoltage, type VoltageLimits } from '../conventions/voltageLimits.js';
+import { judgeVoltage, type VoltageLimits } from '../board/conventions/voltageLimits.js';
 import type { LineToLineReading, LoadReading, PhaseReading } from './boardResult.js';
 
 export interface VoltageExtreme {

@@ -6,7 +6,7 @@
 import type { ComplexValue } from '../complex.js';
 import type { ConnectionSpec, LoadModelName, SystemKind } from './boardSchema.js';
 import type { PhaseId } from './systemTopology.js';
-import type { BoardConventions } from '../conventions/boardConventions.js';
+import type { BoardConventions } from './conventions/boardConventions.js';
 
 export type { PhaseId } from './systemTopology.js';
 

@@ -4,17 +4,18 @@
  * them so the user sees every problem in one pass.
  */
 import { inputIssue, type InputIssue } from '../errors.js';
-import type { BoardSpec, ConductorSpec, FeederSpec, LoadSpec, SupplySpec, SystemKind } from './boardSchema.js';
+import type { BoardBaseSpec, ConductorSpec, FeederSpec, LoadBaseSpec, SupplySpec, SystemKind } from './boardSchema.js';
 import { isThreePhase, phasesOf, systemHasNeutral } from './systemTopology.js';
 import { conductorResistance, tabulatedSizes } from './cableLibrary.js';
-import { readVoltageNotation } from '../conventions/voltageNotation.js';
+import { readVoltageNotation } from './conventions/voltageNotation.js';
 import { isPerPhaseLine, lengthOf, materialOf, sizeOf } from './feederModel.js';
 
-type Rule = (board: BoardSpec) => InputIssue[];
+/** A cross-field rule: the problems it finds in a board that passed the schema. Studies add their own (boardFile/). */
+export type BoardRule<T extends BoardBaseSpec = BoardBaseSpec> = (board: T) => InputIssue[];
 
 const RATING_FORMS = 'exactly one rating: kW (pf 1 when not given), kW with pf, kVA with pf, A with pf, kW with kvar, or ohms';
 
-function ruleVoltageGiven(board: BoardSpec): InputIssue[] {
+function ruleVoltageGiven(board: BoardBaseSpec): InputIssue[] {
   const { voltage, system } = board.supply;
   const path = 'supply.voltage';
   if ('written' in voltage) {
@@ -32,13 +33,13 @@ function ruleVoltageGiven(board: BoardSpec): InputIssue[] {
   return [];
 }
 
-function ruleSourceImpedance(board: BoardSpec): InputIssue[] {
+function ruleSourceImpedance(board: BoardBaseSpec): InputIssue[] {
   if (board.supply.impedance && board.supply.transformer)
     return [inputIssue('conflict', 'supply', 'either impedance or transformer, not both', 'both')];
   return [];
 }
 
-function ruleEmfPhases(board: BoardSpec): InputIssue[] {
+function ruleEmfPhases(board: BoardBaseSpec): InputIssue[] {
   const emf = board.supply.emf;
   if (!emf) return [];
   const phases = phasesOf(board.supply.system);
@@ -80,7 +81,7 @@ function conductorIssues(conductor: ConductorSpec | undefined, path: string, fee
   return issues;
 }
 
-function lineConductorIssues(feeder: FeederSpec | undefined, path: string, system: BoardSpec['supply']['system']): InputIssue[] {
+function lineConductorIssues(feeder: FeederSpec | undefined, path: string, system: BoardBaseSpec['supply']['system']): InputIssue[] {
   const line = feeder?.line;
   if (!line) return [];
   if (!isPerPhaseLine(line)) return conductorIssues(line, path, feeder);
@@ -96,7 +97,7 @@ function lineConductorIssues(feeder: FeederSpec | undefined, path: string, syste
 }
 
 /** Checks a feeder; `path` is where it sits (`feeder`, `boards[2].feeder`). */
-export function feederIssues(feeder: FeederSpec | undefined, path: string, system: BoardSpec['supply']['system']): InputIssue[] {
+export function feederIssues(feeder: FeederSpec | undefined, path: string, system: BoardBaseSpec['supply']['system']): InputIssue[] {
   const issues = [...lineConductorIssues(feeder, `${path}.line`, system), ...conductorIssues(feeder?.neutral, `${path}.neutral`, feeder)];
   if (feeder?.lengthM !== undefined && feeder.lengthFt !== undefined) issues.push(inputIssue('conflict', path, 'one length: lengthM or lengthFt', 'both'));
   if (feeder?.neutral && !systemHasNeutral(system))
@@ -104,12 +105,12 @@ export function feederIssues(feeder: FeederSpec | undefined, path: string, syste
   return issues;
 }
 
-function ruleFeeder(board: BoardSpec): InputIssue[] {
+function ruleFeeder(board: BoardBaseSpec): InputIssue[] {
   return feederIssues(board.feeder, 'feeder', board.supply.system);
 }
 
 /** The ways to give a source impedance are exclusive; each has systems it suits. */
-function ruleUnequalSource(board: BoardSpec): InputIssue[] {
+function ruleUnequalSource(board: BoardBaseSpec): InputIssue[] {
   const { impedance, transformer, bank, openDelta, zeroSequence, system } = board.supply;
   const issues: InputIssue[] = [];
   const given = [impedance && 'impedance', transformer && 'transformer', bank && 'bank', openDelta && 'openDelta'].filter((x): x is string => !!x);
@@ -144,7 +145,7 @@ function ruleUnequalSource(board: BoardSpec): InputIssue[] {
   return issues;
 }
 
-function ratingIssues(load: LoadSpec, path: string): InputIssue[] {
+function ratingIssues(load: LoadBaseSpec, path: string): InputIssue[] {
   const has = (v: unknown) => v !== undefined;
   const forms = [
     has(load.kW) && !has(load.kvar) && !has(load.kVA) && !has(load.A),
@@ -163,7 +164,7 @@ function ratingIssues(load: LoadSpec, path: string): InputIssue[] {
   return issues;
 }
 
-function modelIssues(load: LoadSpec, path: string): InputIssue[] {
+function modelIssues(load: LoadBaseSpec, path: string): InputIssue[] {
   if (load.model !== undefined && load.zip !== undefined)
     return [inputIssue('conflict', path, 'either model or zip, not both', 'both')];
   if (load.zip) {
@@ -173,7 +174,7 @@ function modelIssues(load: LoadSpec, path: string): InputIssue[] {
   return [];
 }
 
-function connectionIssues(load: LoadSpec, path: string, system: SystemKind): InputIssue[] {
+function connectionIssues(load: LoadBaseSpec, path: string, system: SystemKind): InputIssue[] {
   const phases = phasesOf(system);
   const issues: InputIssue[] = [];
   const c = load.connection;
@@ -195,13 +196,13 @@ function connectionIssues(load: LoadSpec, path: string, system: SystemKind): Inp
 }
 
 /** Line (ungrounded) conductors a connection uses: the poles its breaker needs. */
-export function linesOfConnection(c: LoadSpec['connection']): 1 | 2 | 3 {
+export function linesOfConnection(c: LoadBaseSpec['connection']): 1 | 2 | 3 {
   if (c === 'ABC-star' || c === 'ABC-delta') return 3;
   return c.endsWith('-N') ? 1 : 2;
 }
 
 /** A breaker switches every line conductor of its circuit (a 1P+N device counts as 1 pole). */
-function poleIssues(load: LoadSpec, path: string): InputIssue[] {
+function poleIssues(load: LoadBaseSpec, path: string): InputIssue[] {
   if (load.poles === undefined) return [];
   const needed = linesOfConnection(load.connection);
   if (load.poles === needed) return [];
@@ -210,7 +211,7 @@ function poleIssues(load: LoadSpec, path: string): InputIssue[] {
 }
 
 /** The connections a load may use on each system. */
-export function acceptedConnections(system: BoardSpec['supply']['system']): string[] {
+export function acceptedConnections(system: BoardBaseSpec['supply']['system']): string[] {
   switch (system) {
     case 'three-phase-4wire':
       return ['A-N', 'B-N', 'C-N', 'A-B', 'B-C', 'C-A', 'ABC-star', 'ABC-delta'];
@@ -227,7 +228,7 @@ export function acceptedConnections(system: BoardSpec['supply']['system']): stri
  * Load-by-load rules and duplicate names. `loads` may have holes where a load failed the schema
  * (forEach skips them, indices stay the file's); without a valid supply the connection check waits.
  */
-function loadIssues(loads: readonly (LoadSpec | undefined)[], system: SystemKind | null): InputIssue[] {
+function loadIssues(loads: readonly (LoadBaseSpec | undefined)[], system: SystemKind | null): InputIssue[] {
   const issues: InputIssue[] = [];
   const names = new Map<string, number>();
   loads.forEach((load, i) => {
@@ -245,27 +246,7 @@ function loadIssues(loads: readonly (LoadSpec | undefined)[], system: SystemKind
   return issues;
 }
 
-/**
- * Harmonic fields of a load: a spectrum makes it a current source at harmonic
- * orders, so a linear form does not apply; a floating star of fixed impedance
- * keeps its own star point, which current sources alone would leave undefined.
- */
-function ruleHarmonicFields(board: BoardSpec): InputIssue[] {
-  const issues: InputIssue[] = [];
-  board.loads.forEach((load, i) => {
-    const path = `loads[${i}]`;
-    if (load.spectrum === undefined || load.spectrum === 'linear') return;
-    if (load.linearForm !== undefined)
-      issues.push(inputIssue('conflict', `${path}.linearForm`, 'linearForm only on loads without a spectrum (a non-linear load is a current source at harmonic orders)', load.linearForm));
-    const floating = load.connection === 'ABC-star' && (load.starPoint === 'floating' || !systemHasNeutral(board.supply.system));
-    const fixedImpedance = load.ohms !== undefined || load.model === 'constant-impedance' || load.zip?.z === 1;
-    if (floating && fixedImpedance)
-      issues.push(inputIssue('not_applicable', `${path}.spectrum`, 'a spectrum on ABC-delta loads or stars tied to the neutral (describe a floating-star non-linear load as ABC-delta)', 'a floating star'));
-  });
-  return issues;
-}
-
-function ruleLoads(board: BoardSpec): InputIssue[] {
+function ruleLoads(board: BoardBaseSpec): InputIssue[] {
   return loadIssues(board.loads, board.supply.system);
 }
 
@@ -275,7 +256,7 @@ export interface BoardParts {
   /** undefined when the board has no feeder; null when it has one that failed the schema. */
   readonly feeder: FeederSpec | null | undefined;
   /** Loads that passed the schema at their index in the file; holes where one failed. */
-  readonly loads: readonly (LoadSpec | undefined)[];
+  readonly loads: readonly (LoadBaseSpec | undefined)[];
 }
 
 /**
@@ -285,7 +266,7 @@ export interface BoardParts {
 export function partialBoardIssues(parts: BoardParts): InputIssue[] {
   const issues: InputIssue[] = [];
   if (parts.supply) {
-    const board = { supply: parts.supply, feeder: parts.feeder ?? undefined, loads: [] } as unknown as BoardSpec;
+    const board = { supply: parts.supply, feeder: parts.feeder ?? undefined, loads: [] } as unknown as BoardBaseSpec;
     issues.push(...ruleVoltageGiven(board), ...ruleSourceImpedance(board), ...ruleUnequalSource(board), ...ruleEmfPhases(board));
     if (parts.feeder !== null) issues.push(...ruleFeeder(board));
   }
@@ -293,4 +274,5 @@ export function partialBoardIssues(parts: BoardParts): InputIssue[] {
   return issues;
 }
 
-export const BOARD_RULES: readonly Rule[] = [ruleVoltageGiven, ruleSourceImpedance, ruleUnequalSource, ruleEmfPhases, ruleFeeder, ruleLoads, ruleHarmonicFields];
+/** The board's own rules; boardFile/ appends the studies' rules after these. */
+export const BOARD_RULES: readonly BoardRule[] = [ruleVoltageGiven, ruleSourceImpedance, ruleUnequalSource, ruleEmfPhases, ruleFeeder, ruleLoads];

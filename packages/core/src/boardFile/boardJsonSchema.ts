@@ -1,7 +1,6 @@
 import * as z from 'zod';
-import { boardSchema } from './boardSchema.js';
-import { installationSchema } from './installationSchema.js';
-import { withTradeSpellings } from '../conventions/spellingsInJsonSchema.js';
+import { boardSchema, installationSchema } from './boardFileSchema.js';
+import { withTradeSpellings } from '../board/conventions/spellingsInJsonSchema.js';
 
 /**
  * JSON Schema (draft 2020-12) of the board file, for editors to complete and

@@ -9,7 +9,7 @@
  * The naming used is written into `conventions.phaseNames` when the file does not set it, so
  * reports label phases the way the file does. Works on a copy; never changes its input.
  */
-import { inputIssue, type InputIssue } from '../errors.js';
+import { inputIssue, type InputIssue } from '../../errors.js';
 import { readPhaseTerm, type PhaseNaming } from './phaseNames.js';
 import { readVoltageNotation, type VoltageNotation } from './voltageNotation.js';
 

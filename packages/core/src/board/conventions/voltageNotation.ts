@@ -8,7 +8,7 @@
  * within NOTATION_RATIO_TOLERANCE: nominal values are rounded (480/277 is 1.7329,
  * 415/240 is 1.729, 400/230 is 1.739), an impossible pair (400/200 on a star) is not.
  */
-import type { SystemKind } from '../board/boardSchema.js';
+import type { SystemKind } from '../boardSchema.js';
 
 /** Relative tolerance on the ratio of the two figures: rounded nominal values stay within 1 %; 2 % leaves room (common practice, no source). */
 export const NOTATION_RATIO_TOLERANCE = 0.02;

@@ -1,11 +1,11 @@
 /** A board's conventions, every default settled: what reports and checks follow. */
-import type { SystemKind } from '../board/boardSchema.js';
+import type { SystemKind } from '../boardSchema.js';
 import type { ConventionsSpec } from './conventionsSchema.js';
 import { phaseLabels, type PhaseNaming } from './phaseNames.js';
 import { inferRegion, type Region, type RegionBasis } from './region.js';
 import { customLimits, DEFAULT_LIMITS_OF_REGION, presetLimits, type VoltageLimitPresetName, type VoltageLimits } from './voltageLimits.js';
 import { readVoltageNotation, writeVoltageNotation } from './voltageNotation.js';
-import type { PhaseId } from '../board/systemTopology.js';
+import type { PhaseId } from '../systemTopology.js';
 
 export interface BoardConventions {
   readonly region: Region;

@@ -3,7 +3,7 @@
  * file as written: a file in L1/L2/L3 gets `supply.emf.L2`, not `supply.emf.B`.
  * Only path segments change (they are schema keys and indices, never user text).
  */
-import type { InputIssue } from '../errors.js';
+import type { InputIssue } from '../../errors.js';
 import { NUMBERED_SPELLING, type PhaseNaming } from './phaseNames.js';
 
 const PHASE_KEY = /(?<=^|\.)(A|B|C|A-B|B-C|C-A)(?=$|\.|\[)/g;

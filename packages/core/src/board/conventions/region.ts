@@ -10,7 +10,7 @@
  *   3. 60 Hz is North-American, 50 Hz IEC.
  * Rule 3 is a guess for 60 Hz IEC-practice countries: they set `conventions.region: iec`.
  */
-import type { SystemKind } from '../board/boardSchema.js';
+import type { SystemKind } from '../boardSchema.js';
 import type { VoltageNotation } from './voltageNotation.js';
 
 export const REGIONS = ['iec', 'north-america'] as const;

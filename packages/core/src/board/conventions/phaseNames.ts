@@ -5,7 +5,7 @@
  * JSON results keep A/B/C keys whatever the naming, so a program reading them
  * needs no second spelling; `conventions.phaseLabels` in a result maps them.
  */
-import type { PhaseId } from '../board/systemTopology.js';
+import type { PhaseId } from '../systemTopology.js';
 
 export const PHASE_NAMINGS = ['A/B/C', 'L1/L2/L3'] as const;
 export type PhaseNaming = (typeof PHASE_NAMINGS)[number];
