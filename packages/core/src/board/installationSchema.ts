@@ -7,6 +7,7 @@
 import * as z from 'zod';
 import { correctionSpecSchema } from '../correction/correctionSpec.js';
 import { feederSchema, loadSchema, studiesSchema, supplySchema } from './boardSchema.js';
+import { rebalanceSpecSchema } from '../rebalance/rebalanceSpec.js';
 
 export const installationBoardSchema = z.strictObject({
   name: z.string().min(1).describe('board name (unique in the installation)'),
@@ -28,6 +29,7 @@ export const installationSchema = z
       .extend({ board: z.string().min(1).optional().describe('the board the bank goes on; default the main board') })
       .optional()
       .describe('a power-factor correction study for `trivar correct` (command-line options override it)'),
+    rebalance: rebalanceSpecSchema.optional(),
   })
   .describe('a trivar installation file');
 
