@@ -10,7 +10,7 @@ import type { Installation } from '../board/boardModel.js';
 import type { ConnectionSpec } from '../board/boardSchema.js';
 import { InputError, inputIssue } from '../errors.js';
 import { parseOptions } from '../_internal/zodIssues.js';
-import { assertFiniteResult } from '../solveBoard.js';
+import { assertFiniteResult } from '../analysis/assertFiniteResult.js';
 import { analyseSolution } from '../analysis/analyseSolution.js';
 import { solveInstallationNetwork } from '../network/solveNetwork.js';
 import type { BoardResult } from '../analysis/boardResult.js';
