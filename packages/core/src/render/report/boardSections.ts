@@ -1,9 +1,9 @@
 /** Report sections about the board itself: description, panel schedule, solved results, lost neutral. */
-import type { BoardSpec, ImpedanceSpec } from '../../board/boardSchema.js';
+import type { BoardBaseSpec, ImpedanceSpec } from '../../board/boardSchema.js';
 import { describeConductor, isPerPhaseLine } from '../../board/feederModel.js';
 
 /** A source impedance as entered: one for all phases, or one per phase. */
-function impedanceWords(z: NonNullable<BoardSpec['supply']['impedance']>): string {
+function impedanceWords(z: NonNullable<BoardBaseSpec['supply']['impedance']>): string {
   if ('r' in z) return `${z.r} + j${z.x} Ω`;
   return (['A', 'B', 'C'] as const)
     .filter((p) => z[p])
@@ -27,7 +27,7 @@ const SYSTEM_WORDS: Readonly<Record<string, string>> = {
 const pfWords = (pf: number | null, sense: string): string => (pf === null ? '—' : `${fixed(pf, 3)}${sense === 'unity' ? '' : sense === 'lagging' ? ' lag' : ' lead'}`);
 const orDash = (x: number | null | undefined, digits: number): string => (x === null || x === undefined ? '—' : fixed(x, digits));
 
-export function conductorWords(line: NonNullable<BoardSpec['feeder']>['line'], feeder?: BoardSpec['feeder']): string {
+export function conductorWords(line: NonNullable<BoardBaseSpec['feeder']>['line'], feeder?: BoardBaseSpec['feeder']): string {
   if (!line) return 'none entered (zero impedance)';
   if (isPerPhaseLine(line)) return (['A', 'B', 'C'] as const).filter((p) => line[p]).map((p) => `${p}: ${conductorWords(line[p], feeder)}`).join('; ');
   const c = line;
@@ -41,7 +41,7 @@ export function conductorWords(line: NonNullable<BoardSpec['feeder']>['line'], f
 }
 
 /** The supply in words: transformer, source impedance, bank or ideal; zero-sequence data when entered. */
-export function sourceWords(s: BoardSpec['supply']): string {
+export function sourceWords(s: BoardBaseSpec['supply']): string {
   const base = s.transformer
     ? `transformer ${s.transformer.kVA} kVA, impedance ${s.transformer.impedancePercent} %, X/R ${s.transformer.xOverR}${s.impedance ? `, plus ${impedanceWords(s.impedance)}` : ''}`
     : s.impedance
@@ -64,7 +64,7 @@ export function systemFacts(result: BoardResult): [string, string][] {
   ];
 }
 
-export function installationSection(spec: BoardSpec, result: BoardResult): ReportSection {
+export function installationSection(spec: BoardBaseSpec, result: BoardResult): ReportSection {
   const b = result.board;
   const s = spec.supply;
   const items: [string, string][] = [
@@ -85,7 +85,7 @@ export function installationSection(spec: BoardSpec, result: BoardResult): Repor
 const worstBranch = (l: LoadReading) => l.branches.reduce((w, br) => (br.voltagePercent < w.voltagePercent ? br : w), l.branches[0]!);
 
 /** The panel schedule of a board: the circuits of the file (numbers, breakers) with their solved figures. */
-export function scheduleTable(loads: BoardSpec['loads'], result: BoardResult): ReportBlock {
+export function scheduleTable(loads: BoardBaseSpec['loads'], result: BoardResult): ReportBlock {
   const boardLoads = result.loads.filter((l) => l.origin === 'board');
   const rows = boardLoads.map((l, k) => {
     const entered = loads[k];
@@ -125,7 +125,7 @@ export function scheduleTable(loads: BoardSpec['loads'], result: BoardResult): R
   };
 }
 
-export function scheduleSection(spec: BoardSpec, result: BoardResult): ReportSection {
+export function scheduleSection(spec: BoardBaseSpec, result: BoardResult): ReportSection {
   return { id: 'schedule', title: 'Panel schedule', blocks: [scheduleTable(spec.loads, result)] };
 }
 

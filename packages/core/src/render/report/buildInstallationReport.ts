@@ -4,7 +4,7 @@
  * ran (correction at a board, further sections), then
  * assumptions, standards and safety cautions over every board.
  */
-import type { InstallationSpec } from '../../board/installationSchema.js';
+import type { InstallationBaseSpec } from '../../board/installationSchema.js';
 import type { InstallationResult } from '../../analysis/installationResult.js';
 import type { CorrectionReport } from '../../correction/correctionResult.js';
 import type { ReportDocument, ReportSection } from './reportDocument.js';
@@ -17,7 +17,7 @@ import { INSTALLATION_ASSUMPTIONS } from './reportWording.js';
 
 export interface InstallationReportInput {
   /** The installation file as validated (`parseInstallation`). */
-  readonly spec: InstallationSpec;
+  readonly spec: InstallationBaseSpec;
   /** The solved installation (`solveInstallation`). */
   readonly result: InstallationResult;
   /** A correction study at one board of the installation, if one ran. @defaultValue none */

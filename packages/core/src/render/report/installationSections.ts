@@ -3,7 +3,7 @@
  * drawing, the feeders, the totals, and one section per board (schedule,
  * results, voltages against limits, phasors).
  */
-import type { InstallationSpec } from '../../board/installationSchema.js';
+import type { InstallationBaseSpec } from '../../board/installationSchema.js';
 import type { InstallationBoardResult, InstallationResult } from '../../analysis/installationResult.js';
 import { boardSpecOf } from '../../board/installationRules.js';
 import { fixed } from '../svgText.js';
@@ -28,10 +28,10 @@ export function boardSectionIds(names: readonly string[]): Map<string, string> {
 }
 
 /** The board's entry in the file (names are unique in a valid installation). */
-const specIndex = (spec: InstallationSpec, name: string): number => spec.boards.findIndex((b) => b.name === name);
+const specIndex = (spec: InstallationBaseSpec, name: string): number => spec.boards.findIndex((b) => b.name === name);
 
 /** The feeder of a board in words: the library cable's description, or the conductors as entered. */
-function feederWords(spec: InstallationSpec, result: InstallationResult, name: string): string {
+function feederWords(spec: InstallationBaseSpec, result: InstallationResult, name: string): string {
   const reading = result.feeders.find((f) => f.board === name);
   if (reading?.description) return reading.description;
   const feeder = spec.boards[specIndex(spec, name)]?.feeder;
@@ -41,14 +41,14 @@ function feederWords(spec: InstallationSpec, result: InstallationResult, name: s
 }
 
 /** The supply lines printed beside the source symbol of the one-line drawing. */
-export function supplyLinesOf(spec: InstallationSpec, result: InstallationResult): string[] {
+export function supplyLinesOf(spec: InstallationBaseSpec, result: InstallationResult): string[] {
   const b = result.boards[0]!.result.board;
   const volts = b.nominalLineToLineV !== null ? `${fixed(b.nominalLineToLineV, 0)}/${fixed(b.nominalLineToNeutralV, 0)} V` : `${fixed(b.nominalLineToNeutralV, 0)} V`;
   const t = spec.supply.transformer;
   return [`Supply ${volts} · ${b.frequencyHz} Hz`, t ? `transformer ${t.kVA} kVA, ${t.impedancePercent} %` : sourceWords(spec.supply)];
 }
 
-export function installationDescription(spec: InstallationSpec, result: InstallationResult): ReportSection {
+export function installationDescription(spec: InstallationBaseSpec, result: InstallationResult): ReportSection {
   const main = result.boards[0]!.result;
   const circuits = spec.boards.reduce((n, b) => n + b.loads.length, 0);
   const items: [string, string][] = [
@@ -132,7 +132,7 @@ export function totalsSection(result: InstallationResult): ReportSection {
 }
 
 /** One board of the installation: where it is fed from, its panel schedule and its solved figures. */
-export function boardSection(spec: InstallationSpec, result: InstallationResult, board: InstallationBoardResult, id: string, band?: VoltageBand): ReportSection {
+export function boardSection(spec: InstallationBaseSpec, result: InstallationResult, board: InstallationBoardResult, id: string, band?: VoltageBand): ReportSection {
   const own = boardSpecOf(spec, specIndex(spec, board.name));
   const feeder = result.feeders.find((f) => f.board === board.name)!;
   const fedBy = board.fedFrom === null ? 'the supply (main board)' : board.fedFrom;
