@@ -10,6 +10,7 @@ export { toPhasor, polar, degToRad, radToDeg } from './complex.js';
 // Errors
 export type { InputIssue } from './errors.js';
 export { InputError, NumericalError, formatPath } from './errors.js';
+export { collapseError, assertViableBoard } from './analysis/viableOperatingPoint.js';
 
 // Board files
 export type {

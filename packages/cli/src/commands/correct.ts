@@ -1,8 +1,7 @@
 /** `trivar correct`: size, choose and verify power-factor correction for a board. */
-import { boardHasHarmonicData, compareCorrections, compareWithHarmonics, correctBoard, correctWithHarmonics, InputError, normaliseBoard, parseBoard, readBoardText, solveBoardModel, type CorrectionComparison, type CorrectionReport, type HarmonicComparison, type HarmonicCorrectionReport } from '@trivar/core';
+import { boardHasHarmonicData, compareCorrections, compareWithHarmonics, correctBoard, correctWithHarmonics, InputError, normaliseBoard, parseBoard, readBoardText, type CorrectionComparison, type CorrectionReport, type HarmonicComparison, type HarmonicCorrectionReport } from '@trivar/core';
 import type { CliIo } from '../io.js';
 import { writeResult } from '../writeResult.js';
-import { collapseError } from '../exitCodes.js';
 import { renderCorrectionReport } from '../format/correctionReport.js';
 import { renderComparisonHarmonics, renderCorrectionHarmonics } from '../format/correctionHarmonicsReport.js';
 import { renderComparisonReport } from '../format/comparisonReport.js';
@@ -54,10 +53,8 @@ export async function runCorrect(file: string, options: CorrectCommandOptions, i
   const spec = parseBoard(readBoardText(await io.readSource(file, options.maxInputMb === undefined ? {} : { maxInputMB: options.maxInputMb })));
   const study = studySpec(spec.correction as Record<string, unknown> | undefined, options);
   try {
+    // correctBoard and compareCorrections refuse a board whose supply has collapsed.
     const board = normaliseBoard(spec);
-    // Correcting a board whose supply has collapsed would size equipment for a state that cannot exist.
-    const present = solveBoardModel(board);
-    if (present.operatingPoint.collapsed) throw collapseError(present);
     // Without an arrangement (file or option) every arrangement that fits the board is compared.
     if (study.arrangement === undefined) {
       if (boardHasHarmonicData(spec)) {

@@ -47,6 +47,8 @@ export function boardOfInstallation(installation: Installation, index: number): 
   return {
     ...supply,
     name: sb.name,
+    // A sub-board sees the transformer only through the boards above it: its own loading is its feeder's.
+    transformerKVA: null,
     sourceImpedance: ZERO,
     lineImpedance: mean(sb.feeder.lineImpedances),
     lineImpedances: sb.feeder.lineImpedances,
