@@ -121,6 +121,10 @@ export { verifyCorrection } from './correction/verifyCorrection.js';
 export { correctBoard } from './correction/correctBoard.js';
 export type { CorrectionComparison, ArrangementOutcome, ArrangementFigures } from './correction/compareCorrections.js';
 export { compareCorrections } from './correction/compareCorrections.js';
+export type { InstallationCorrection, InstallationComparison, CorrectInstallationOptions } from './correction/correctInstallation.js';
+export { correctInstallation, compareInstallationCorrections, installationBoardIndex } from './correction/correctInstallation.js';
+export type { InstallationEffect, BoardEffect, IncomerLineEffect, SupplyEffect } from './correction/installationEffect.js';
+export { installationEffect } from './correction/installationEffect.js';
 export type * from './correction/correctionResult.js';
 export { CORRECTION_CAUTIONS } from './correction/correctionWording.js';
 
