@@ -39,7 +39,7 @@ Examples:
   trivar correct examples/cedar-falls-print-shop.yaml        (no arrangement: all compared)
   trivar correct examples/riverside-cold-store.yaml --arrangement star-bank --pf 0.97
   trivar correct examples/corner-bakery.yaml --arrangement balancing-compensator
-  trivar correct examples/maple-court-riser.yaml --board "Floor 1" --arrangement star-bank
+  trivar correct examples/tannery-lane-works.yaml --board "Press shop" --arrangement star-bank
   trivar correct board.yaml --arrangement delta-bank --definition effective --light-load 0.2 --json
 
 Exit codes: as for solve, plus
