@@ -10,6 +10,7 @@ export { toPhasor, polar, degToRad, radToDeg } from './complex.js';
 // Errors
 export type { InputIssue } from './errors.js';
 export { InputError, NumericalError, formatPath } from './errors.js';
+export { collapseError, assertViableBoard } from './analysis/viableOperatingPoint.js';
 
 // Board files (the whole file with the studies' sections is composed in boardFile/)
 export type { BoardSpec, LoadSpec } from './boardFile/boardFileSchema.js';
@@ -123,6 +124,10 @@ export { verifyCorrection } from './correction/verifyCorrection.js';
 export { correctBoard } from './correction/correctBoard.js';
 export type { CorrectionComparison, ArrangementOutcome, ArrangementFigures } from './correction/compareCorrections.js';
 export { compareCorrections } from './correction/compareCorrections.js';
+export type { InstallationCorrection, InstallationComparison, CorrectInstallationOptions } from './correction/correctInstallation.js';
+export { correctInstallation, compareInstallationCorrections, installationBoardIndex } from './correction/correctInstallation.js';
+export type { InstallationEffect, BoardEffect, IncomerLineEffect, SupplyEffect } from './correction/installationEffect.js';
+export { installationEffect } from './correction/installationEffect.js';
 export type * from './correction/correctionResult.js';
 export { CORRECTION_CAUTIONS } from './correction/correctionWording.js';
 
