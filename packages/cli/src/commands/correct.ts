@@ -80,16 +80,19 @@ export async function runCorrect(file: string, options: CorrectCommandOptions, i
     writeResult(io, report, options.json, renderCorrectionReport);
     return { kind: 'single', report };
   } catch (error) {
-    // The study comes from the board file's correction section (and the options laid over it).
-    if (error instanceof InputError)
-      throw new InputError(
-        error.issues.map((i) => {
-          const path = i.path ? `correction.${i.path}` : 'correction';
-          // Messages start with "<path>: "; restate them at the path inside the board file.
-          return { ...i, path, message: `${path}: ${i.message.slice(i.message.indexOf(': ') + 2)}` };
-        }),
-        'the correction study is not valid (board file correction section or command-line options)',
-      );
+    if (error instanceof InputError) throw asCorrectionInputError(error);
     throw error;
   }
+}
+
+/** An input error of the correction study restated at its path inside the board file (correction.…). */
+export function asCorrectionInputError(error: InputError): InputError {
+  return new InputError(
+    error.issues.map((i) => {
+      const path = i.path ? `correction.${i.path}` : 'correction';
+      // Messages start with "<path>: "; restate them at the path inside the board file.
+      return { ...i, path, message: `${path}: ${i.message.slice(i.message.indexOf(': ') + 2)}` };
+    }),
+    'the correction study is not valid (board file correction section or command-line options)',
+  );
 }

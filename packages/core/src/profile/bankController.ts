@@ -29,6 +29,8 @@ export interface SwitchedStep {
   /** Output at nominal voltage, kvar (the channel's total: all three phases for 'ABC'). */
   readonly kvar: number;
   readonly channel: StepChannel;
+  /** Controller output that drives the step, where a designed bank numbers them. */
+  readonly output?: number;
 }
 
 export interface SwitchingSettings {

@@ -37,7 +37,7 @@ export function switchingFromBank(steps: readonly BankStep[], controller: Contro
     const always = s.part === 'fixed' || s.output === null;
     if (always) fixedKvar += s.kvarAtNominalV;
     const channel = s.kind === 'three-phase' ? 'ABC' : s.branches.length === 1 ? /^([ABC])-N$/.exec(s.branches[0] ?? '')?.[1] : undefined;
-    if (channel) (always ? fixed : out).push({ kvar: s.kvarAtNominalV, channel: channel as SwitchedStep['channel'] });
+    if (channel) (always ? fixed : out).push({ kvar: s.kvarAtNominalV, channel: channel as SwitchedStep['channel'], ...(s.output !== null ? { output: s.output } : {}) });
     else if (always) fixedNotSimulatedKvar += s.kvarAtNominalV;
     else notSimulated.push(s.output!);
   }
