@@ -5,7 +5,6 @@ import { join } from 'node:path';
 import {
   checkIntervalSequence,
   correctBoard,
-  InputError,
   switchingFromBank,
   type SwitchingFromBank,
   driverColumns,
@@ -22,7 +21,7 @@ import {
 } from '@trivar/core';
 import type { CliIo } from '../io.js';
 import { UsageError } from '../exitCodes.js';
-import { asCorrectionInputError } from './correct.js';
+import { inFileSection } from './correct.js';
 import { assertNotInput, writeOutputFile } from '../outputFiles.js';
 import { writeResult } from '../writeResult.js';
 import { readCsvHeader, readIntervalRows } from '../read/intervalCsv.js';
@@ -64,8 +63,7 @@ export function designedBankOf(spec: ReturnType<typeof parseBoard>, board: Retur
   try {
     selection = correctBoard(board, study).selection;
   } catch (error) {
-    if (error instanceof InputError) throw asCorrectionInputError(error);
-    throw error;
+    throw inFileSection(error);
   }
   if (!selection?.steps.length || !selection.controller)
     throw new UsageError('--correction-bank: the correction study builds no switched bank for this board (run trivar correct to see why)');
