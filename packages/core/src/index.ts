@@ -10,6 +10,7 @@ export { toPhasor, polar, degToRad, radToDeg } from './complex.js';
 // Errors
 export type { InputIssue } from './errors.js';
 export { InputError, NumericalError, formatPath } from './errors.js';
+export { collapseError, assertViableBoard } from './analysis/viableOperatingPoint.js';
 
 // Board files (the whole file with the studies' sections is composed in boardFile/)
 export type { BoardSpec, LoadSpec } from './boardFile/boardFileSchema.js';
@@ -123,6 +124,10 @@ export { verifyCorrection } from './correction/verifyCorrection.js';
 export { correctBoard } from './correction/correctBoard.js';
 export type { CorrectionComparison, ArrangementOutcome, ArrangementFigures } from './correction/compareCorrections.js';
 export { compareCorrections } from './correction/compareCorrections.js';
+export type { InstallationCorrection, InstallationComparison, CorrectInstallationOptions } from './correction/correctInstallation.js';
+export { correctInstallation, compareInstallationCorrections, installationBoardIndex } from './correction/correctInstallation.js';
+export type { InstallationEffect, BoardEffect, IncomerLineEffect, SupplyEffect } from './correction/installationEffect.js';
+export { installationEffect } from './correction/installationEffect.js';
 export type * from './correction/correctionResult.js';
 export { CORRECTION_CAUTIONS } from './correction/correctionWording.js';
 
@@ -185,6 +190,9 @@ export { rebalanceSpecSchema, AIM_FIGURES } from './rebalance/rebalanceSpec.js';
 export type { ConditionFigures, RebalanceObjective } from './rebalance/rebalanceObjective.js';
 export type { RebalanceOptions } from './rebalance/rebalanceBoard.js';
 export { rebalanceBoard } from './rebalance/rebalanceBoard.js';
+export { rebalanceInstallation } from './rebalance/rebalanceInstallation.js';
+export { conditionsFromScenarios } from './rebalance/rebalanceRules.js';
+export { rewriteInstallationText } from './rebalance/rewriteBoardText.js';
 export type * from './rebalance/rebalanceResult.js';
 export { REBALANCE_CAUTIONS } from './rebalance/rebalanceWording.js';
 export { rewriteBoardText } from './rebalance/rewriteBoardText.js';
@@ -197,9 +205,14 @@ export { renderSequenceDiagram } from './render/renderSequenceDiagram.js';
 export type { CurrentTriangleOptions, LineCurrentParts } from './render/renderCurrentTriangles.js';
 export { renderCurrentTriangles, lineCurrentParts } from './render/renderCurrentTriangles.js';
 export { renderImpedanceScan } from './render/renderImpedanceScan.js';
+export type { OneLineDiagramOptions } from './render/renderOneLineDiagram.js';
+export { renderOneLineDiagram, ONE_LINE_LAYOUT } from './render/renderOneLineDiagram.js';
 export type { ReportDocument, ReportSection, ReportBlock, ReportColumn } from './render/report/reportDocument.js';
 export type { BoardReportInput } from './render/report/buildBoardReport.js';
 export { buildBoardReport } from './render/report/buildBoardReport.js';
+export type { InstallationReportInput } from './render/report/buildInstallationReport.js';
+export { buildInstallationReport } from './render/report/buildInstallationReport.js';
+export { handCheckSection, handCheckEffectRows } from './render/report/handCheckSection.js';
 export type { ReportHtmlOptions } from './render/report/renderReportHtml.js';
 export { renderReportHtml } from './render/report/renderReportHtml.js';
 export type { MarkdownReport } from './render/report/renderReportMarkdown.js';
