@@ -224,6 +224,7 @@ export function createProgram(io: CliIo, outcome: RunOutcome = { exitCode: EXIT.
     .addOption(new Option('--fill-gaps <how>', 'fill missing intervals (default: leave them out)').choices(['none', 'hold', 'linear']))
     .option('--unlisted-at-rating', 'keep loads that no column drives at their rating (default: off)')
     .option('--bank', 'simulate an automatic capacitor bank over the profile (profile.bank in the board file sets it up)')
+    .option('--correction-bank', "simulate instead the bank trivar correct designs for this board: its steps, fixed part and controller settings (the board file's correction section)")
     .option('--pf <value>', 'target power factor of the bank (0 < pf <= 1; default 0.95)', numberIn(0, 1, 'a power factor above 0 and at most 1'))
     .option('--summary-csv <file>', 'write the summary as CSV')
     .option('--intervals-csv <file>', 'write per-interval results as CSV')
