@@ -4,17 +4,17 @@ import { regionWords } from '../../board/conventions/regionWords.js';
 import { describeConductor, isPerPhaseLine } from '../../board/feederModel.js';
 
 /** A source impedance as entered: one for all phases, or one per phase. */
-function impedanceWords(z: NonNullable<BoardBaseSpec['supply']['impedance']>): string {
+function impedanceWords(z: NonNullable<BoardBaseSpec['supply']['impedance']>, naming: PhaseNaming): string {
   if ('r' in z) return `${z.r} + j${z.x} Ω`;
   return (['A', 'B', 'C'] as const)
     .filter((p) => z[p])
-    .map((p) => `${p} ${(z[p] as ImpedanceSpec).r} + j${(z[p] as ImpedanceSpec).x} Ω`)
+    .map((p) => `${labelIn(naming, p)} ${(z[p] as ImpedanceSpec).r} + j${(z[p] as ImpedanceSpec).x} Ω`)
     .join(', ');
 }
 import type { BoardResult, LoadReading } from '../../analysis/boardResult.js';
 import { fixed } from '../svgText.js';
 import { WARNING_THRESHOLDS } from '../../analysis/boardWarnings.js';
-import { labelIn } from '../../board/conventions/phaseNames.js';
+import { labelIn, type PhaseNaming } from '../../board/conventions/phaseNames.js';
 import { bandWords, judgeVoltage } from '../../board/conventions/voltageLimits.js';
 import { renderPhasorDiagram } from '../renderPhasorDiagram.js';
 import { renderSequenceDiagram } from '../renderSequenceDiagram.js';
@@ -30,9 +30,9 @@ const SYSTEM_WORDS: Readonly<Record<string, string>> = {
 const pfWords = (pf: number | null, sense: string): string => (pf === null ? '—' : `${fixed(pf, 3)}${sense === 'unity' ? '' : sense === 'lagging' ? ' lag' : ' lead'}`);
 const orDash = (x: number | null | undefined, digits: number): string => (x === null || x === undefined ? '—' : fixed(x, digits));
 
-export function conductorWords(line: NonNullable<BoardBaseSpec['feeder']>['line'], feeder?: BoardBaseSpec['feeder']): string {
+export function conductorWords(line: NonNullable<BoardBaseSpec['feeder']>['line'], feeder?: BoardBaseSpec['feeder'], naming: PhaseNaming = 'A/B/C'): string {
   if (!line) return 'none entered (zero impedance)';
-  if (isPerPhaseLine(line)) return (['A', 'B', 'C'] as const).filter((p) => line[p]).map((p) => `${p}: ${conductorWords(line[p], feeder)}`).join('; ');
+  if (isPerPhaseLine(line)) return (['A', 'B', 'C'] as const).filter((p) => line[p]).map((p) => `${labelIn(naming, p)}: ${conductorWords(line[p], feeder)}`).join('; ');
   const c = line;
   const library = describeConductor(c, feeder);
   if (library) return `${library}${c.ratingA !== undefined ? `, rated ${c.ratingA} A` : ''}`;
@@ -44,11 +44,11 @@ export function conductorWords(line: NonNullable<BoardBaseSpec['feeder']>['line'
 }
 
 /** The supply in words: transformer, source impedance, bank or ideal; zero-sequence data when entered. */
-export function sourceWords(s: BoardBaseSpec['supply']): string {
+export function sourceWords(s: BoardBaseSpec['supply'], naming: PhaseNaming = 'A/B/C'): string {
   const base = s.transformer
-    ? `transformer ${s.transformer.kVA} kVA, impedance ${s.transformer.impedancePercent} %, X/R ${s.transformer.xOverR}${s.impedance ? `, plus ${impedanceWords(s.impedance)}` : ''}`
+    ? `transformer ${s.transformer.kVA} kVA, impedance ${s.transformer.impedancePercent} %, X/R ${s.transformer.xOverR}${s.impedance ? `, plus ${impedanceWords(s.impedance, naming)}` : ''}`
     : s.impedance
-      ? `${impedanceWords(s.impedance)}${'r' in s.impedance ? ' per phase' : ''}`
+      ? `${impedanceWords(s.impedance, naming)}${'r' in s.impedance ? ' per phase' : ''}`
       : s.bank
         ? 'a bank of single-phase units, one per phase'
         : s.openDelta
@@ -73,9 +73,9 @@ export function installationSection(spec: BoardBaseSpec, result: BoardResult): R
   const items: [string, string][] = [
     ['Board', b.name],
     ...systemFacts(result),
-    ['Source', sourceWords(s)],
+    ['Source', sourceWords(s, result.conventions.phaseNames)],
     ['Source voltages', s.emf ? 'unbalanced, as entered per phase' : 'balanced at nominal voltage'],
-    ['Feeder, each line', conductorWords(spec.feeder?.line, spec.feeder)],
+    ['Feeder, each line', conductorWords(spec.feeder?.line, spec.feeder, result.conventions.phaseNames)],
   ];
   if (result.neutral !== null) items.push(['Feeder, neutral', conductorWords(spec.feeder?.neutral, spec.feeder)]);
   if (b.neutralOpen) items.push(['Neutral', 'entered as broken (what-if)']);
