@@ -4,7 +4,7 @@
  * or a breaker whose poles do not fit its load, is refused naming the field.
  */
 import { describe, expect, it } from 'vitest';
-import { conventionsOf, solveBoard, solveInstallation, validateBoard, validateInstallation } from '@trivar/core';
+import { conventionsOf, parseBoard, readBoardText, rewriteBoardText, solveBoard, solveInstallation, validateBoard, validateInstallation } from '@trivar/core';
 import { renderSolveReport } from '../../packages/cli/src/format/solveReport.js';
 
 type Mutable = Record<string, any>;
@@ -150,5 +150,37 @@ describe('panel-schedule fields', () => {
     const text = renderSolveReport(r);
     expect(text).toMatch(/^ {2}7 +saw .*16 A 2P$/m);
     expect(text).toMatch(/^ {2}9 +compressor .*20 A 3P$/m);
+  });
+});
+
+describe('rebalancing a file written in L1/L2/L3', () => {
+  it('writes the moved circuits back in the file’s own naming, so the file stays valid', () => {
+    const text = 'supply: { voltage: 230/400, frequencyHz: 50 }\nloads:\n  - { name: Kettle, connection: L1-N, kW: 2 }\n  - { name: Oven, connection: L1-L2, kW: 3 }\n';
+    const out = rewriteBoardText(text, [
+      { circuit: 1, name: 'Kettle', to: 'B-N' },
+      { circuit: 2, name: 'Oven', to: 'C-A' },
+    ]);
+    expect(out).toContain('connection: L2-N');
+    expect(out).toContain('connection: L3-L1');
+    expect(validateBoard(readBoardText(out)).ok).toBe(true);
+    expect(rewriteBoardText('loads:\n  - { name: Kettle, connection: A-N, kW: 2 }\n', [{ circuit: 1, name: 'Kettle', to: 'B-N' }])).toContain('connection: B-N');
+  });
+});
+
+describe('drawings and the HTML report follow the naming', () => {
+  it('labels phasors, sequence components and the limits table L1/L2/L3, keeping data-phase A/B/C', async () => {
+    const { renderPhasorDiagram, renderSequenceDiagram, buildBoardReport, renderReportHtml } = await import('@trivar/core');
+    const r = solveBoard(numbered());
+    const phasors = renderPhasorDiagram(r);
+    expect(phasors).toContain('0° = phase-L1 source voltage');
+    expect(phasors).toMatch(/>L2</);
+    expect(phasors).toContain('data-phase="B"');
+    const sequences = renderSequenceDiagram(r);
+    expect(sequences).toContain('L1=L2=L3');
+    expect(sequences).toContain('sequence L1L2L3');
+    const html = renderReportHtml(buildBoardReport({ spec: parseBoard(numbered()), result: r }));
+    expect(html).toContain('L1 0.02 + j0.05 Ω');
+    expect(html).toMatch(/<td[^>]*>L3-L1<\/td>/);
+    expect(html).not.toMatch(/<td[^>]*>[ABC]-[ABCN]<\/td>/);
   });
 });
