@@ -82,7 +82,6 @@ describe('L1/L2/L3 in a board file', () => {
     ['a load in the other naming', edit(numbered, (b) => (b.loads[2].connection = 'C-A')), 'mixed_phase_names', 'loads[2].connection'],
     ['a per-phase key in the other naming', edit(numbered, (b) => (b.feeder.line = { L1: { r: 0.05, x: 0 }, B: { r: 0.05, x: 0 }, L3: { r: 0.05, x: 0 } })), 'mixed_phase_names', 'feeder.line.B'],
     ['the same phase twice', edit(lettered, (b) => (b.supply.impedance = { A: { r: 0.02, x: 0 }, L1: { r: 0.02, x: 0 }, B: { r: 0.02, x: 0 }, C: { r: 0.02, x: 0 } })), 'duplicate_phase', 'supply.impedance.L1'],
-    ['a declared naming the file does not use', edit(lettered, (b) => (b.conventions = { phaseNames: 'L1/L2/L3' })), 'mixed_phase_names', 'conventions.phaseNames'],
     ['an unknown phase name', edit(numbered, (b) => (b.loads[0].connection = 'L1-L4')), 'invalid_value', 'loads[0].connection'],
     ['a rule broken in L1/L2/L3 is reported in L1/L2/L3', edit(numbered, (b) => (b.supply.emf = { L1: { V: 230, angleDeg: 0 }, L2: { V: 230, angleDeg: -120 } })), 'missing', 'supply.emf.L3'],
     ['one pole on a line-to-line load', edit(lettered, (b) => (b.loads[0].poles = 1)), 'pole_count', 'loads[0].poles'],
@@ -104,6 +103,24 @@ describe('L1/L2/L3 in a board file', () => {
     const result = validateBoard(edit(numbered, (b) => (b.loads[2].connection = 'C-A')));
     expect(result.ok).toBe(false);
     if (!result.ok) expect(result.issues[0]!.message).toMatch(/names phases L1\/L2\/L3 \(first at supply\.impedance\.L1\)/);
+  });
+
+  it('a validated spec validates again as it is, and solves the same (notation and L1/L2/L3 kept in conventions)', () => {
+    const input = { ...numbered(), supply: { ...numbered().supply, voltage: '230/400' } };
+    const spec = parseBoard(input);
+    expect(spec.conventions?.phaseNames).toBe('L1/L2/L3');
+    expect(spec.supply.voltage).toMatchObject({ written: '230/400', lineToLine: 400, lineToNeutral: 230 });
+    expect(parseBoard(spec)).toEqual(spec);
+    expect(solveBoard(spec).phases).toEqual(solveBoard(input).phases);
+    expect(solveBoard(spec).conventions.phaseNames).toBe('L1/L2/L3');
+    // A hand-edited spec whose figures disagree with its notation is refused.
+    const edited = { ...spec, supply: { ...spec.supply, voltage: { ...spec.supply.voltage, lineToLine: 415 } } };
+    expect(validateBoard(edited).ok).toBe(false);
+  });
+
+  it('phaseNames chooses the report labels of a file written either way', () => {
+    const r = solveBoard({ ...lettered(), conventions: { phaseNames: 'L1/L2/L3' } });
+    expect(renderSolveReport(r)).toMatch(/^ {2}L1 +\d/m);
   });
 
   it('never changes the object it was given', () => {
