@@ -201,3 +201,26 @@ describe('drawings and the HTML report follow the naming', () => {
     expect(html).not.toMatch(/<td[^>]*>[ABC]-[ABCN]<\/td>/);
   });
 });
+
+describe('a rebalancing work order for a file in L1/L2/L3', () => {
+  it('names the connections the way the file does', async () => {
+    const { normaliseBoard, rebalanceBoard } = await import('@trivar/core');
+    const { renderRebalanceReport } = await import('../../packages/cli/src/format/rebalanceReport.js');
+    const board = normaliseBoard(
+      parseBoard({
+        supply: { voltage: '230/400', frequencyHz: 50, impedance: { r: 0.02, x: 0.02 } },
+        loads: [
+          { name: 'Flat 1', connection: 'L1-N', kW: 5 },
+          { name: 'Flat 2', connection: 'L1-N', kW: 5 },
+          { name: 'Flat 3', connection: 'L1-N', kW: 5 },
+        ],
+      }),
+    );
+    const report = rebalanceBoard(board, {});
+    expect(report.moves.length).toBe(2);
+    expect(report.board.phaseNames).toBe('L1/L2/L3');
+    const text = renderRebalanceReport(report);
+    expect(text).toMatch(/Flat \d +L1-N +L[23]-N/);
+    expect(text).not.toMatch(/\b[ABC]-N\b/);
+  });
+});

@@ -1,5 +1,5 @@
 /** RebalanceReport → the text report of `trivar rebalance`. */
-import type { ConditionComparison, ConditionFigures, RebalanceReport } from '@trivar/core';
+import { labelIn, type ConditionComparison, type ConditionFigures, type RebalanceReport } from '@trivar/core';
 import { fixed, renderTable, renderTableWithin, section } from './textTable.js';
 
 const amps = (x: number | null) => (x === null ? '-' : fixed(x, 1));
@@ -48,14 +48,16 @@ function verdict(r: RebalanceReport): string {
 
 function workOrder(r: RebalanceReport): string {
   if (r.moves.length === 0) return '  (no moves)';
+  // The work order speaks the file's naming (L1-N where the file wrote L1-N).
+  const on = (c: string) => labelIn(r.board.phaseNames ?? 'A/B/C', c);
   if (isInstallation(r))
     return renderTableWithin(
       [{ header: 'board', align: 'left' }, { header: 'no.' }, { header: 'circuit', align: 'left' }, { header: 'now on', align: 'left' }, { header: 'move to', align: 'left' }],
-      r.moves.map((m) => [m.board, String(m.circuit), m.name, m.from, m.to]),
+      r.moves.map((m) => [m.board, String(m.circuit), m.name, on(m.from), on(m.to)]),
     );
   return renderTable(
     [{ header: 'no.' }, { header: 'circuit', align: 'left' }, { header: 'now on', align: 'left' }, { header: 'move to', align: 'left' }],
-    r.moves.map((m) => [String(m.circuit), m.name, m.from, m.to]),
+    r.moves.map((m) => [String(m.circuit), m.name, on(m.from), on(m.to)]),
   );
 }
 

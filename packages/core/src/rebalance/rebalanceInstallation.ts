@@ -6,6 +6,7 @@
  *     ─branch-and-bound (small boards)─▶ proven answer, or polygon lower bound ─▶ gap
  *     ─move table / fewest moves─▶ chosen answer ─network solver─▶ before/after figures
  */
+import { conventionsOf } from '../board/conventions/boardConventions.js';
 import type { Installation } from '../board/boardModel.js';
 import type { ConnectionSpec } from '../board/boardSchema.js';
 import { InputError, inputIssue } from '../errors.js';
@@ -347,7 +348,7 @@ export function rebalanceInstallation(installation: Installation, study: unknown
   const lb = chosen.lowerBound;
   const main0 = tree.boards[0]!;
   return {
-    board: { name: tree.boards.length > 1 ? installation.name : main0.name, system: main0.system },
+    board: { name: tree.boards.length > 1 ? installation.name : main0.name, system: main0.system, phaseNames: conventionsOf(main0).phaseNames },
     boards: {
       all: tree.names,
       movable: tree.names.filter((_, b) => resolved.movableBoards[b]),
