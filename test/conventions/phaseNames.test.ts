@@ -224,3 +224,14 @@ describe('a rebalancing work order for a file in L1/L2/L3', () => {
     expect(text).not.toMatch(/\b[ABC]-N\b/);
   });
 });
+
+describe('profile columns naming phases', () => {
+  it('"phase L2 [kW]" drives the same metered phase as "phase B [kW]"', async () => {
+    const { normaliseBoard, planColumns } = await import('@trivar/core');
+    const board = normaliseBoard(parseBoard(numbered()));
+    const numberedPlan = planColumns(board, ['time', 'phase L2 [kW]']);
+    const letteredPlan = planColumns(board, ['time', 'phase B [kW]']);
+    expect(numberedPlan.board.loads.at(-1)!.branches[0]!.from).toBe('B');
+    expect(numberedPlan.board.loads.at(-1)).toEqual(letteredPlan.board.loads.at(-1));
+  });
+});
