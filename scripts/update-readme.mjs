@@ -13,6 +13,7 @@ const blocks = [
   ['correct-detuned-output', ['correct', 'examples/quayside-print-works.yaml']],
   ['check-output', ['check', 'examples/riverside-cold-store.yaml', 'examples/hand-figures/riverside-cold-store.yaml']],
   ['rebalance-output', ['rebalance', 'examples/larkspur-court-flats.yaml']],
+  ['rebalance-installation-output', ['rebalance', 'examples/maple-court-riser.yaml', '--move-limit', '4']],
 ];
 let readme = readFileSync('README.md', 'utf8');
 for (const [marker, args] of blocks) {

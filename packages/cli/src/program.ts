@@ -82,6 +82,9 @@ Examples:
   trivar rebalance examples/larkspur-court-flats.yaml --move-limit 3
   trivar rebalance examples/larkspur-court-flats.yaml --near-best 2 --write larkspur-moved.yaml
   trivar rebalance board.yaml --aim neutral=1,largest-line=0.5 --json
+  trivar rebalance examples/maple-court-riser.yaml --move-limit 4 --write riser-moved.yaml
+  trivar rebalance examples/maple-court-riser.yaml --boards "Floor 3" --measure-at main
+  trivar rebalance examples/maple-court-riser.yaml --aim voltage-unbalance --measure-at "Floor 4"
 
 Exit codes: as for solve`;
 
@@ -244,13 +247,16 @@ export function createProgram(io: CliIo, outcome: RunOutcome = { exitCode: EXIT.
 
   program
     .command('rebalance')
-    .description('find which circuits to move to which phase (fewest moves, proven bound) and re-solve the board')
-    .argument('<board>', 'board file (YAML or JSON), or - for standard input')
+    .description('find which circuits to move to which phase (fewest moves, proven bound) and re-solve the board or installation')
+    .argument('<board>', 'board or installation file (YAML or JSON), or - for standard input')
     .option('--aim <figures>', 'what to make small: largest-line, neutral, current-unbalance, voltage-unbalance, each =weight (default largest-line,neutral)', parseAim)
     .addOption(new Option('--combine <how>', 'over several load conditions: the worst one or the weighted mean').choices(['worst', 'weighted']))
     .option('--move-limit <n>', 'move at most this many circuits', anyNumber)
     .option('--near-best <percent>', 'fewest moves whose score is within this % of the best', anyNumber)
     .option('--capacity <A>', 'largest current any line may carry, A', anyNumber)
+    .option('--boards <names>', 'installations: only the circuits of these boards may move (comma-separated)', (v: string) => v.split(',').map((x) => x.trim()).filter(Boolean))
+    .option('--measure-at <where>', 'installations: score each board\'s incomer ("each", default), the main incomer ("main") or one board\'s incomer and voltage (its name)')
+    .option('--scenarios', 'use the profile section\'s scenarios as the load conditions, weighted by their hours')
     .addOption(new Option('--method <how>', 'search: exact branch-and-bound, local search, or auto by board size').choices(['auto', 'exact', 'local-search']))
     .option('--no-table', 'skip the table of the best score by moves allowed')
     .option('--write <file>', 'save the board file with the moves made (never the input file)')
