@@ -3,7 +3,7 @@ import { Command, CommanderError, InvalidArgumentError, Option } from 'commander
 import { EXIT, exitCodeFor, messageFor } from './exitCodes.js';
 import { DEFAULT_MAX_INPUT_MB, type CliIo } from './io.js';
 import { runSolve } from './commands/solve.js';
-import { runSchema } from './commands/schema.js';
+import { runSchema, type SchemaCommandOptions } from './commands/schema.js';
 import { outcomeMeetsTarget, runCorrect, type CorrectCommandOptions } from './commands/correct.js';
 import { runProfile, type ProfileCommandOptions } from './commands/profile.js';
 import { runHarmonics } from './commands/harmonics.js';
@@ -225,6 +225,7 @@ export function createProgram(io: CliIo, outcome: RunOutcome = { exitCode: EXIT.
     .addOption(new Option('--fill-gaps <how>', 'fill missing intervals (default: leave them out)').choices(['none', 'hold', 'linear']))
     .option('--unlisted-at-rating', 'keep loads that no column drives at their rating (default: off)')
     .option('--bank', 'simulate an automatic capacitor bank over the profile (profile.bank in the board file sets it up)')
+    .option('--correction-bank', "simulate instead the bank trivar correct designs for this board: its steps, fixed part and controller settings (the board file's correction section)")
     .option('--pf <value>', 'target power factor of the bank (0 < pf <= 1; default 0.95)', numberIn(0, 1, 'a power factor above 0 and at most 1'))
     .option('--summary-csv <file>', 'write the summary as CSV')
     .option('--intervals-csv <file>', 'write per-interval results as CSV')
@@ -314,7 +315,8 @@ export function createProgram(io: CliIo, outcome: RunOutcome = { exitCode: EXIT.
   program
     .command('schema')
     .description('print the JSON Schema of board files (for editor completion and checking)')
-    .action(() => runSchema(io));
+    .option('--installation', 'the schema of installation files (boards: fed from each other) instead')
+    .action((opts: SchemaCommandOptions) => runSchema(io, opts));
 
   return program;
 }

@@ -27,7 +27,7 @@ export { boardSchema } from './boardFile/boardFileSchema.js';
 export type { BoardValidation } from './boardFile/validateBoard.js';
 export { validateBoard, parseBoard, parseBoardText } from './boardFile/validateBoard.js';
 export { readBoardText, BOARD_TEXT_LIMITS } from './board/readBoardText.js';
-export { boardJsonSchema } from './boardFile/boardJsonSchema.js';
+export { boardJsonSchema, installationJsonSchema } from './boardFile/boardJsonSchema.js';
 export { acceptedConnections } from './board/boardRules.js';
 export type { Board, BoardLoad, LoadBranch, Terminal, ZipFractions, PhaseId } from './board/boardModel.js';
 export { normaliseBoard } from './board/normaliseBoard.js';
@@ -234,3 +234,15 @@ export type { ScenarioReading, ScenarioResult } from './profile/studyScenarios.j
 export { studyScenarios } from './profile/studyScenarios.js';
 export type { SwitchingFromBank } from './profile/switchingFromBank.js';
 export { switchingFromBank } from './profile/switchingFromBank.js';
+// Regional conventions: phase names, voltage notation, voltage limits, region wording.
+export type { PhaseNaming } from './board/conventions/phaseNames.js';
+export { PHASE_NAMINGS, labelIn, phaseLabels } from './board/conventions/phaseNames.js';
+export type { VoltageNotation, NotationReading } from './board/conventions/voltageNotation.js';
+export { readVoltageNotation, writeVoltageNotation, NOTATION_RATIO_TOLERANCE } from './board/conventions/voltageNotation.js';
+export type { VoltageLimits, VoltageLimitPreset, VoltageLimitPresetName } from './board/conventions/voltageLimits.js';
+export { VOLTAGE_LIMIT_PRESETS, judgeVoltage, bandWords } from './board/conventions/voltageLimits.js';
+export type { Region, RegionBasis } from './board/conventions/region.js';
+export { inferRegion } from './board/conventions/region.js';
+export type { BoardConventions } from './board/conventions/boardConventions.js';
+export { conventionsOf } from './board/conventions/boardConventions.js';
+export type { VoltageCheck, VoltageExtreme } from './analysis/voltageCheck.js';
