@@ -192,6 +192,8 @@ export type { RebalanceOptions } from './rebalance/rebalanceBoard.js';
 export { rebalanceBoard } from './rebalance/rebalanceBoard.js';
 export { rebalanceInstallation } from './rebalance/rebalanceInstallation.js';
 export { conditionsFromScenarios } from './rebalance/rebalanceRules.js';
+export { conditionsFromIntervals } from './rebalance/intervalConditions.js';
+export type { IntervalConditions, IntervalConditionOptions, IntervalPick, LoadConditionInput } from './rebalance/intervalConditions.js';
 export { rewriteInstallationText } from './rebalance/rewriteBoardText.js';
 export type * from './rebalance/rebalanceResult.js';
 export { REBALANCE_CAUTIONS } from './rebalance/rebalanceWording.js';
