@@ -184,6 +184,7 @@ function solvedFigures(name: string, board: string, result: BoardResult): Condit
 
 /** Capacity below what no spread of the movable circuits can avoid is a bad study, whatever the move limit. */
 function checkCapacity(built: BuiltProblem, study: ResolvedRebalance, tie: number): void {
+  if (study.lineCapacityA.every((c) => c === Infinity)) return;
   const bounds = magnitudeBoundsWithMoveLimit(built.problem, built.problem.circuitCount);
   const several = built.layouts.length > new Set(built.layouts.map((l) => l.condition)).size;
   // Parseval: the largest line current is at least the part no assignment changes (|I1|, or the split-phase share).
