@@ -60,7 +60,7 @@ class Walker {
   score = 0;
   excess = 0;
   private readonly trial: Float64Array;
-  /** Magnitudes of `sums`, always current. */
+  /** Magnitudes of `sums`: always current on the sparse path; scratch on the dense one. */
   private readonly mags: Float64Array;
   /** Magnitudes of a trial: equal to `mags` outside a trial. */
   private readonly trialMags: Float64Array;
@@ -127,15 +127,12 @@ class Walker {
       const into2 = contributionOffset(p, j, kj);
       for (let x = 0; x < q2; x++) t[x]! += c[into2 + x]! - c[out2 + x]!;
     }
-    magnitudesOf(t, this.trialMags);
-    const score = p.score(this.trialMags);
-    const excess = limitExcess(p, this.trialMags);
-    if (!this.beats(score, excess, moves)) {
-      this.trialMags.set(this.mags);
-      return false;
-    }
+    // Dense problems never take the sparse path, so `mags` may serve as scratch here.
+    magnitudesOf(t, this.mags);
+    const score = p.score(this.mags);
+    const excess = limitExcess(p, this.mags);
+    if (!this.beats(score, excess, moves)) return false;
     this.sums.set(t);
-    this.mags.set(this.trialMags);
     return this.accept(i, ki, j, kj, moves, score, excess);
   }
 
