@@ -4,8 +4,8 @@ import type { CliIo } from '../io.js';
 import { UsageError } from '../exitCodes.js';
 import { assertNotInput, writeOutputFile } from '../outputFiles.js';
 
-export const DIAGRAM_VIEWS = ['phasors', 'sequence', 'triangles'] as const;
-export type DiagramView = (typeof DIAGRAM_VIEWS)[number];
+import type { DiagramView } from './diagramViews.js';
+export { DIAGRAM_VIEWS, type DiagramView } from './diagramViews.js';
 
 export interface DiagramCommandOptions {
   readonly view?: DiagramView;

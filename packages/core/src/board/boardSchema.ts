@@ -6,6 +6,7 @@
  * neutral load on a board with no neutral...) live in `boardRules.ts`.
  */
 import * as z from 'zod';
+import { groupDigits } from '../_internal/groupDigits.js';
 import { correctionSpecSchema } from '../correction/correctionSpec.js';
 import { profileSpecSchema } from '../profile/profileSpec.js';
 import { harmonicsSectionSchema, linearFormSchema, spectrumSchema } from '../harmonics/harmonicsSpec.js';
@@ -20,7 +21,7 @@ const nonNegative = z.number().nonnegative();
  */
 function within(range: PhysicalRange): z.ZodNumber {
   const { min, max, unit, above } = range;
-  const text = `a number ${above ? 'above' : 'from'} ${min.toLocaleString('en')} ${above ? 'and at most' : 'to'} ${max.toLocaleString('en')}${unit ? ` ${unit}` : ''}`;
+  const text = `a number ${above ? 'above' : 'from'} ${groupDigits(min)} ${above ? 'and at most' : 'to'} ${groupDigits(max)}${unit ? ` ${unit}` : ''}`;
   return (above ? z.number().gt(min, { message: text }) : z.number().min(min, { message: text })).max(max, { message: text });
 }
 
