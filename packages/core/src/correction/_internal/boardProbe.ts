@@ -6,7 +6,7 @@
  */
 import type { Board } from '../../board/boardModel.js';
 import type { BoardResult } from '../../analysis/boardResult.js';
-import { analyseSolution } from '../../analysis/analyseSolution.js';
+import { analyseSolution, readLinePowers } from '../../analysis/analyseSolution.js';
 import { compileBoard, solveCompiledBoard, type CompiledBoard, type SolveOptions } from '../../network/solveNetwork.js';
 import { addCorrectionEquipment, equipmentGroups, susceptanceFromKvar, type BranchSlot, type EquipmentGroup } from '../equipment.js';
 
@@ -55,14 +55,19 @@ export function createProbe(base: Board, slots: readonly BranchSlot[], name: str
     at(kvar) {
       count++;
       const board = addCorrectionEquipment(base, groups(kvar));
-      const result = analyseSolution(solveEquipped(board, solve));
+      const solution = solveEquipped(board, solve);
+      // Most trial solves are read for line powers only: the whole analysis waits until asked for.
+      const lines = readLinePowers(solution);
+      let result: BoardResult | undefined;
       return {
         kvar: [...kvar],
         board,
-        result,
-        lineP: result.phases.map((p) => p.kW),
-        lineQ: result.phases.map((p) => p.kvar),
-        lineS: result.phases.map((p) => p.kVA),
+        get result() {
+          return (result ??= analyseSolution(solution));
+        },
+        lineP: lines.map((p) => p.kW),
+        lineQ: lines.map((p) => p.kvar),
+        lineS: lines.map((p) => p.kVA),
       };
     },
   };
