@@ -8,7 +8,7 @@ import { resolve } from 'node:path';
 const requireShim = "import{createRequire as __trivarRequire}from'node:module';const require=__trivarRequire(import.meta.url);";
 
 /**
- * Rewrites `import { a, b } from '@trivar/core'` in the CLI's sources to imports from the core
+ * Rewrites `import { a, b } from '@trivar/core'` (and `export { … } from`) in the CLI's sources to imports from the core
  * modules that define a and b (read off core's index.ts, which only re-exports). With code
  * splitting esbuild places a module in every chunk whose entry reaches it through the import
  * graph, whichever exports are used: through the index, every command reached all of core and
@@ -28,15 +28,17 @@ function coreImportsByModule() {
     setup(b) {
       b.onLoad({ filter: /[\\/]packages[\\/]cli[\\/]src[\\/].*\.ts$/ }, (args) => {
         const source = readFileSync(args.path, 'utf8');
-        const contents = source.replace(/^import\s+\{([^}]*)\}\s+from\s+'@trivar\/core';/gm, (_, list) => {
+        const contents = source.replace(/^(import|export)\s+\{([^}]*)\}\s+from\s+'@trivar\/core';/gm, (_, keyword, list) => {
           const byFile = new Map();
           for (const spec of list.split(',').map((n) => n.trim()).filter((n) => n && !n.startsWith('type '))) {
             const file = home.get(spec);
             if (!file) throw new Error(`build: ${args.path} imports "${spec}", which core's index.ts does not export as a value`);
             byFile.set(file, [...(byFile.get(file) ?? []), spec]);
           }
-          return [...byFile].map(([file, names]) => `import { ${names.join(', ')} } from ${JSON.stringify(file)};`).join(' ');
+          return [...byFile].map(([file, names]) => `${keyword} { ${names.join(', ')} } from ${JSON.stringify(file)};`).join(' ');
         });
+        const left = contents.split('\n').find((line) => /from\s+'@trivar\/core'/.test(line) && !/^(import|export)\s+type\s/.test(line));
+        if (left) throw new Error(`build: ${args.path}: write core imports as "import { a, b } from '@trivar/core';" (or import type), so they can be resolved per module: ${left}`);
         return { contents, loader: 'ts' };
       });
     },

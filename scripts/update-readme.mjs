@@ -8,6 +8,7 @@ const blocks = [
   ['correct-output', ['correct', 'examples/riverside-cold-store.yaml']],
   ['compare-output', ['correct', 'examples/cedar-falls-print-shop.yaml']],
   ['installation-output', ['solve', 'examples/maple-court-riser.yaml']],
+  ['installation-correct-output', ['correct', 'examples/tannery-lane-works.yaml', '--board', 'Press shop', '--arrangement', 'star-bank']],
   ['harmonics-output', ['harmonics', 'examples/mill-street-offices.yaml']],
   ['correct-detuned-output', ['correct', 'examples/quayside-print-works.yaml']],
   ['check-output', ['check', 'examples/riverside-cold-store.yaml', 'examples/hand-figures/riverside-cold-store.yaml']],

@@ -25,6 +25,11 @@ describe('README', () => {
     const shown = block.replace(/^\s*```text\n/, '').replace(/```\s*$/, '');
     expect(shown.trimEnd()).toBe(runTrivar(['solve', 'examples/maple-court-riser.yaml']).stdout.trimEnd());
   });
+  it('installation correction block matches `trivar correct examples/tannery-lane-works.yaml --board "Press shop" --arrangement star-bank`', () => {
+    const block = readme.split('<!-- installation-correct-output:start -->')[1]!.split('<!-- installation-correct-output:end -->')[0]!;
+    const shown = block.replace(/^\s*```text\n/, '').replace(/```\s*$/, '');
+    expect(shown.trimEnd()).toBe(runTrivar(['correct', 'examples/tannery-lane-works.yaml', '--board', 'Press shop', '--arrangement', 'star-bank']).stdout.trimEnd());
+  });
   it('harmonics output block matches `trivar harmonics examples/mill-street-offices.yaml`', () => {
     const block = readme.split('<!-- harmonics-output:start -->')[1]!.split('<!-- harmonics-output:end -->')[0]!;
     const shown = block.replace(/^\s*```text\n/, '').replace(/```\s*$/, '');

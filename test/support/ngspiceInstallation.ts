@@ -84,8 +84,12 @@ export function buildInstallationNetlist(installation: Installation, solution: I
         const name = `L${b}_${li}_${bi}`;
         const mid = `m${b}_${li}_${bi}`;
         lines.push(`VI${name} ${nodeOf(br.from)} ${mid} DC 0`);
+        // A branch of zero admittance (an empty branch of a compensator) is an open circuit: a resistor far
+        // above any impedance in the netlist keeps its ammeter's node from floating (current ~1e-16 A).
+        const open = state.admittance.re === 0 && state.admittance.im === 0;
         const z = cInv(state.admittance);
-        lines.push(...((li + bi) % 2 === 0 ? seriesElements(name, mid, nodeOf(br.to), z, omega) : parallelElements(name, mid, nodeOf(br.to), state.admittance, omega)));
+        if (open) lines.push(`R${name} ${mid} ${nodeOf(br.to)} 1e18`);
+        else lines.push(...((li + bi) % 2 === 0 ? seriesElements(name, mid, nodeOf(br.to), z, omega) : parallelElements(name, mid, nodeOf(br.to), state.admittance, omega)));
         probes.push({ vector: `i(vi${name.toLowerCase()})`, label: `${s.board.name} load ${load.name} ${br.from}→${br.to} current`, kind: 'current', core: state.current });
         for (const t of [br.from, br.to]) {
           if (t.startsWith('star:') && !stars.has(`${b}:${t}`)) {

@@ -28,10 +28,8 @@ export class UsageError extends Error {
   }
 }
 
-/** A solved board whose operating point is a collapse: exit 4, as for a board with no solution. */
-export function collapseError(result: { readonly operatingPoint: { readonly findings: readonly string[] } }): UsageError {
-  return new UsageError(`no viable operating point: the supply cannot carry these loads: ${result.operatingPoint.findings.join('; ')}`, EXIT.numerical);
-}
+/** A solved board whose operating point is a collapse: the core's NumericalError (exit 4, as for a board with no solution). */
+export { collapseError } from '@trivar/core';
 
 export function exitCodeFor(error: unknown): number {
   if (error instanceof InputError) return EXIT.input;
@@ -51,6 +49,8 @@ export function messageFor(error: unknown): string {
     if (more > 0) shown.push(`  (${more} more problem${more === 1 ? '' : 's'} not shown: is this a board file?)`);
     return `error: ${error.heading}:\n${shown.join('\n')}`;
   }
+  // A collapse has a solution, just not a viable one: its message says so itself.
+  if (error instanceof NumericalError && error.reason === 'collapsed') return `error: ${escapeControlCharacters(error.message)}`;
   if (error instanceof NumericalError) return `error: no solution: ${escapeControlCharacters(error.message)}`;
   if (error instanceof UsageError) return `error: ${escapeControlCharacters(error.message)}`;
   const detail = error instanceof Error ? (error.stack ?? error.message) : String(error);

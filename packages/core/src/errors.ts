@@ -33,7 +33,8 @@ export class InputError extends Error {
 /** The network could not be solved: singular, or an iteration that did not settle. */
 export class NumericalError extends Error {
   override readonly name = 'NumericalError';
-  readonly reason: 'singular' | 'no-convergence' | 'non-finite';
+  /** `collapsed`: solved, but at a point the supply cannot hold (see analysis/viableOperatingPoint.ts). */
+  readonly reason: 'singular' | 'no-convergence' | 'non-finite' | 'collapsed';
   constructor(reason: NumericalError['reason'], message: string) {
     super(message);
     this.reason = reason;

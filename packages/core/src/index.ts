@@ -10,11 +10,11 @@ export { toPhasor, polar, degToRad, radToDeg } from './complex.js';
 // Errors
 export type { InputIssue } from './errors.js';
 export { InputError, NumericalError, formatPath } from './errors.js';
+export { collapseError, assertViableBoard } from './analysis/viableOperatingPoint.js';
 
-// Board files
+// Board files (the whole file with the studies' sections is composed in boardFile/)
+export type { BoardSpec, LoadSpec } from './boardFile/boardFileSchema.js';
 export type {
-  BoardSpec,
-  LoadSpec,
   SupplySpec,
   ConductorSpec,
   ImpedanceSpec,
@@ -22,21 +22,23 @@ export type {
   ConnectionSpec,
   LoadModelName,
 } from './board/boardSchema.js';
-export { boardSchema, PHYSICAL_RANGES } from './board/boardSchema.js';
-export type { BoardValidation } from './board/validateBoard.js';
-export { validateBoard, parseBoard, readBoardText, parseBoardText } from './board/validateBoard.js';
-export { BOARD_TEXT_LIMITS } from './board/readBoardText.js';
-export { boardJsonSchema } from './board/boardJsonSchema.js';
+export { PHYSICAL_RANGES } from './board/boardSchema.js';
+export { boardSchema } from './boardFile/boardFileSchema.js';
+export type { BoardValidation } from './boardFile/validateBoard.js';
+export { validateBoard, parseBoard, parseBoardText } from './boardFile/validateBoard.js';
+export { readBoardText, BOARD_TEXT_LIMITS } from './board/readBoardText.js';
+export { boardJsonSchema } from './boardFile/boardJsonSchema.js';
 export { acceptedConnections } from './board/boardRules.js';
 export type { Board, BoardLoad, LoadBranch, Terminal, ZipFractions, PhaseId } from './board/boardModel.js';
 export { normaliseBoard } from './board/normaliseBoard.js';
 
 // Installations (boards in a radial tree) and the cable library
 export type { Installation, SubBoard, SubBoardFeeder, InstallationPlace } from './board/boardModel.js';
-export type { InstallationSpec, InstallationBoardSpec } from './board/installationSchema.js';
-export { installationSchema } from './board/installationSchema.js';
-export type { InstallationValidation } from './board/validateInstallation.js';
-export { validateInstallation, parseInstallation, isInstallationInput } from './board/validateInstallation.js';
+export type { InstallationSpec, InstallationBoardSpec } from './boardFile/boardFileSchema.js';
+export { installationSchema } from './boardFile/boardFileSchema.js';
+export type { InstallationValidation } from './boardFile/validateInstallation.js';
+export { validateInstallation, parseInstallation } from './boardFile/validateInstallation.js';
+export { isInstallationInput } from './board/validateInstallationWith.js';
 export { normaliseInstallation } from './board/normaliseInstallation.js';
 export type { FeederSpec, PerPhaseConductorSpec, WindingSpec } from './board/boardSchema.js';
 export type { ConductorMaterial, ConductorSize, ConductorResistance } from './board/cableLibrary.js';
@@ -45,8 +47,9 @@ export { installationOf, boardOfInstallation } from './network/installationModel
 export type { InstallationSolution, CompiledInstallation } from './network/solveNetwork.js';
 export { compileInstallation, solveCompiledInstallation, solveInstallationNetwork } from './network/solveNetwork.js';
 export type * from './analysis/installationResult.js';
-export type { SolveInstallationOptions } from './solveInstallation.js';
-export { solveInstallation, solveInstallationModel } from './solveInstallation.js';
+export type { SolveInstallationOptions } from './analysis/solveInstallationModel.js';
+export { solveInstallationModel } from './analysis/solveInstallationModel.js';
+export { solveInstallation } from './boardFile/solveInstallation.js';
 
 // Solving
 export type { SolveOptions, NetworkSolution, BranchState } from './network/solveNetwork.js';
@@ -54,8 +57,9 @@ export { solveNetwork, terminalVoltage } from './network/solveNetwork.js';
 export type { CompiledBoard } from './network/solveNetwork.js';
 export { compileBoard, solveCompiledBoard } from './network/solveNetwork.js';
 export type { CompiledNetwork } from './network/compiledNetwork.js';
-export type { SolveBoardOptions } from './solveBoard.js';
-export { solveBoard, solveBoardModel } from './solveBoard.js';
+export type { SolveBoardOptions } from './analysis/solveBoardModel.js';
+export { solveBoardModel } from './analysis/solveBoardModel.js';
+export { solveBoard } from './boardFile/solveBoard.js';
 
 // Analysis
 export type * from './analysis/boardResult.js';
@@ -120,6 +124,10 @@ export { verifyCorrection } from './correction/verifyCorrection.js';
 export { correctBoard } from './correction/correctBoard.js';
 export type { CorrectionComparison, ArrangementOutcome, ArrangementFigures } from './correction/compareCorrections.js';
 export { compareCorrections } from './correction/compareCorrections.js';
+export type { InstallationCorrection, InstallationComparison, CorrectInstallationOptions } from './correction/correctInstallation.js';
+export { correctInstallation, compareInstallationCorrections, installationBoardIndex } from './correction/correctInstallation.js';
+export type { InstallationEffect, BoardEffect, IncomerLineEffect, SupplyEffect } from './correction/installationEffect.js';
+export { installationEffect } from './correction/installationEffect.js';
 export type * from './correction/correctionResult.js';
 export { CORRECTION_CAUTIONS } from './correction/correctionWording.js';
 
@@ -151,7 +159,7 @@ export { renderTimeChart, renderDurationChart } from './render/profileCharts.js'
 
 // Harmonics
 export type * from './harmonics/harmonicsResult.js';
-export type { SpectrumSpec, SpectrumEntrySpec, LinearForm, HarmonicsSectionSpec, InstalledBankSpec } from './harmonics/harmonicsSpec.js';
+export type { SpectrumSpec, SpectrumEntrySpec, LinearForm, HarmonicsSectionSpec, InstalledBankSpec, HarmonicLoadSpec, HarmonicsBoardSpec } from './harmonics/harmonicsSpec.js';
 export { harmonicsSectionSchema, MAX_ORDER } from './harmonics/harmonicsSpec.js';
 export type { SpectrumKind, TypicalSpectrum } from './harmonics/typicalSpectra.js';
 export { TYPICAL_SPECTRA, SPECTRUM_KINDS } from './harmonics/typicalSpectra.js';
@@ -160,7 +168,8 @@ export { resolveHarmonicModel, addInstalledBank, ordersPresent, stateKey } from 
 export { solveAtOrder, impedanceAtOrder, branchAdmittanceAtOrder } from './harmonics/networkAtOrder.js';
 export type { OrderSolution } from './harmonics/readHarmonics.js';
 export type { HarmonicsOptions } from './harmonics/studyHarmonics.js';
-export { studyHarmonics, analyseHarmonics, solveHarmonicOrders, withSteps } from './harmonics/studyHarmonics.js';
+export { studyBoardHarmonics, analyseHarmonics, solveHarmonicOrders, withSteps } from './harmonics/studyHarmonics.js';
+export { studyHarmonics } from './boardFile/studyHarmonics.js';
 export type { ScanEvaluator } from './harmonics/scanResonance.js';
 export { scanResonance, createScanEvaluator, scanGrid, stepCombinations } from './harmonics/scanResonance.js';
 export { DUTY_LIMITS, dutyFigures } from './harmonics/capacitorDuty.js';

@@ -1,11 +1,11 @@
 /** `trivar correct`: size, choose and verify power-factor correction for a board. */
-import { boardHasHarmonicData, compareCorrections, compareWithHarmonics, correctBoard, correctWithHarmonics, InputError, normaliseBoard, parseBoard, readBoardText, solveBoardModel, type CorrectionComparison, type CorrectionReport, type HarmonicComparison, type HarmonicCorrectionReport } from '@trivar/core';
+import { boardHasHarmonicData, compareCorrections, compareInstallationCorrections, compareWithHarmonics, correctBoard, correctInstallation, correctWithHarmonics, InputError, installationBoardIndex, isInstallationInput, normaliseBoard, normaliseInstallation, parseBoard, parseInstallation, readBoardText, type CorrectionComparison, type CorrectionReport, type HarmonicComparison, type HarmonicCorrectionReport } from '@trivar/core';
 import type { CliIo } from '../io.js';
 import { writeResult } from '../writeResult.js';
-import { collapseError } from '../exitCodes.js';
 import { renderCorrectionReport } from '../format/correctionReport.js';
 import { renderComparisonHarmonics, renderCorrectionHarmonics } from '../format/correctionHarmonicsReport.js';
 import { renderComparisonReport } from '../format/comparisonReport.js';
+import { renderInstallationComparison, renderInstallationCorrection } from '../format/installationCorrectionReport.js';
 
 export interface CorrectCommandOptions {
   readonly json?: boolean;
@@ -19,6 +19,8 @@ export interface CorrectCommandOptions {
   readonly practice?: string;
   readonly ct?: number;
   readonly maxInputMb?: number;
+  /** Installation files: the board the equipment goes on (default: the main board). */
+  readonly board?: string;
 }
 
 /** The board file's `correction` section with the command-line options laid over it. */
@@ -50,14 +52,54 @@ export function outcomeMeetsTarget(outcome: CorrectOutcome): boolean {
   return s !== 'infeasible' && s !== 'misses-target-with-available-units' && s !== 'no-suitable-units';
 }
 
+/** The study's input errors restated at their place in the file (`correction.target.pf`). */
+function inFileSection(error: unknown): unknown {
+  if (!(error instanceof InputError)) return error;
+  return new InputError(
+    error.issues.map((i) => {
+      const path = i.path ? `correction.${i.path}` : 'correction';
+      // Messages start with "<path>: "; restate them at the path inside the board file.
+      return { ...i, path, message: `${path}: ${i.message.slice(i.message.indexOf(': ') + 2)}` };
+    }),
+    'the correction study is not valid (board file correction section or command-line options)',
+  );
+}
+
+/** An installation file: the equipment on the board `--board` names (default: the main board), its effect on every board. */
+function runCorrectInstallation(input: unknown, options: CorrectCommandOptions, io: CliIo): CorrectOutcome {
+  const spec = parseInstallation(input);
+  const { installation } = normaliseInstallation(spec);
+  // Checked before the study, so the error names the option, not the file's correction section.
+  installationBoardIndex(installation, options.board, '--board');
+  const study = studySpec(spec.correction as Record<string, unknown> | undefined, options);
+  const placement = options.board === undefined ? {} : { board: options.board };
+  try {
+    if (study.arrangement === undefined) {
+      const compared = compareInstallationCorrections(installation, study, placement);
+      writeResult(io, compared, options.json, renderInstallationComparison);
+      return { kind: 'comparison', comparison: compared.comparison };
+    }
+    const corrected = correctInstallation(installation, study, placement);
+    writeResult(io, corrected, options.json, renderInstallationCorrection);
+    return { kind: 'single', report: corrected.report };
+  } catch (error) {
+    throw inFileSection(error);
+  }
+}
+
 export async function runCorrect(file: string, options: CorrectCommandOptions, io: CliIo): Promise<CorrectOutcome> {
-  const spec = parseBoard(readBoardText(await io.readSource(file, options.maxInputMb === undefined ? {} : { maxInputMB: options.maxInputMb })));
+  const input = readBoardText(await io.readSource(file, options.maxInputMb === undefined ? {} : { maxInputMB: options.maxInputMb }));
+  if (isInstallationInput(input)) return runCorrectInstallation(input, options, io);
+  if (options.board !== undefined)
+    throw new InputError(
+      [{ code: 'not_applicable', path: '', expected: 'an installation file (with boards:) for --board', message: '--board applies to installation files (with boards:), and this is a single board' }],
+      'the options do not fit the file',
+    );
+  const spec = parseBoard(input);
   const study = studySpec(spec.correction as Record<string, unknown> | undefined, options);
   try {
+    // correctBoard and compareCorrections refuse a board whose supply has collapsed.
     const board = normaliseBoard(spec);
-    // Correcting a board whose supply has collapsed would size equipment for a state that cannot exist.
-    const present = solveBoardModel(board);
-    if (present.operatingPoint.collapsed) throw collapseError(present);
     // Without an arrangement (file or option) every arrangement that fits the board is compared.
     if (study.arrangement === undefined) {
       if (boardHasHarmonicData(spec)) {
@@ -81,15 +123,6 @@ export async function runCorrect(file: string, options: CorrectCommandOptions, i
     return { kind: 'single', report };
   } catch (error) {
     // The study comes from the board file's correction section (and the options laid over it).
-    if (error instanceof InputError)
-      throw new InputError(
-        error.issues.map((i) => {
-          const path = i.path ? `correction.${i.path}` : 'correction';
-          // Messages start with "<path>: "; restate them at the path inside the board file.
-          return { ...i, path, message: `${path}: ${i.message.slice(i.message.indexOf(': ') + 2)}` };
-        }),
-        'the correction study is not valid (board file correction section or command-line options)',
-      );
-    throw error;
+    throw inFileSection(error);
   }
 }

@@ -188,6 +188,15 @@ function powerBlock(r: BoardResult): string {
     ...(r.transformer
       ? [row('transformer', `${fixed(r.transformer.kVA, 2)} kVA at its terminals; ${fixed(r.transformer.loadingPercent, 0)} % of rated current (${fixed(r.transformer.ratedKVA, 0)} kVA)`)]
       : []),
+    ...(r.incomer
+      ? [
+          wrapText(
+            `${fixed(r.incomer.kVA, 2)} kVA through the feeder from ${r.incomer.fedFrom}; ${r.incomer.loadingPercent === null ? `largest line ${fixed(r.incomer.largestLineCurrentA, 1)} A (no feeder rating given)` : `${fixed(r.incomer.loadingPercent, 0)} % of its rating (${fixed(r.incomer.ratingA!, 0)} A)`}`,
+            `  ${'incomer'.padEnd(16)} `,
+            ' '.repeat(19),
+          ),
+        ]
+      : []),
     ...(generating ? [note('loads (net): consumption minus generation, load convention (+kW consumed, +kvar absorbed).')] : []),
   ].join('\n');
 }

@@ -13,7 +13,7 @@ import { boardWarnings, GENERAL_CAUTION, NEUTRAL_CAUTION } from './boardWarnings
 import { readLoads } from './readLoads.js';
 import { powerReading } from './powerReading.js';
 import { currentNoiseFloor, withNoiseFloor } from './noiseFloor.js';
-import { judgeOperatingPoint, readTransformer } from './readSupplyState.js';
+import { judgeOperatingPoint, readIncomer, readTransformer } from './readSupplyState.js';
 import type { BoardResult, LineToLineReading, LossReading, NeutralReading, PhaseReading, PowerReading, UnbalanceReading } from './boardResult.js';
 
 const PAIRS: Record<string, readonly [PhaseId, PhaseId][]> = {
@@ -190,6 +190,7 @@ export function analyseSolution(solved: NetworkSolution): BoardResult {
     cautions,
     openNeutral: null,
     transformer,
+    incomer: readIncomer(solution, phases),
     operatingPoint,
   };
 }

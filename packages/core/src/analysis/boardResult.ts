@@ -197,6 +197,19 @@ export interface TransformerReading {
   readonly loadingPercent: number;
 }
 
+/** A sub-board's incomer: the feeder from the board that feeds it, loaded by this board and every board beyond it. */
+export interface IncomerReading {
+  /** The feeding board's name. */
+  readonly fedFrom: string;
+  /** Apparent power through the incomer at this board, Σ|V||I| over the lines, kVA. */
+  readonly kVA: number;
+  readonly largestLineCurrentA: number;
+  /** The feeder's line rating, A; null where the file gives none. */
+  readonly ratingA: number | null;
+  /** Most loaded line against the rating, %; null without a rating. */
+  readonly loadingPercent: number | null;
+}
+
 /** Whether the solved point is one the supply can hold (see `SUPPLY_LIMITS`). */
 export interface OperatingPoint {
   /** True when the supply cannot carry the loads: the figures describe a collapse, not a working board. */
@@ -235,7 +248,9 @@ export interface BoardResult {
   readonly warnings: readonly BoardWarning[];
   readonly cautions: readonly string[];
   readonly openNeutral: OpenNeutralStudy | null;
-  /** Supply transformer loading; null without a transformer. */
+  /** Supply transformer loading; null without a transformer, and on a sub-board (see `incomer`). */
   readonly transformer: TransformerReading | null;
+  /** A sub-board of an installation: its incomer's loading; null on a main (or single) board. */
+  readonly incomer: IncomerReading | null;
   readonly operatingPoint: OperatingPoint;
 }

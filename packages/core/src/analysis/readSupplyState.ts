@@ -4,7 +4,7 @@
  */
 import { abs, mul, sub } from '../complex.js';
 import type { NetworkSolution } from '../network/solveNetwork.js';
-import type { LineToLineReading, OperatingPoint, PhaseReading, TransformerReading } from './boardResult.js';
+import type { IncomerReading, LineToLineReading, OperatingPoint, PhaseReading, TransformerReading } from './boardResult.js';
 
 export const SUPPLY_LIMITS = {
   /**
@@ -38,6 +38,23 @@ export function readTransformer(solution: NetworkSolution): TransformerReading |
     largest = Math.max(largest, abs(i));
   });
   return { ratedKVA: board.transformerKVA, kVA, ratedCurrentA, largestLineCurrentA: largest, loadingPercent: (100 * largest) / ratedCurrentA };
+}
+
+/** A sub-board's incomer: what its feeder carries at the board, against the feeder's rating. Null on a main board. */
+export function readIncomer(solution: NetworkSolution, phases: readonly PhaseReading[]): IncomerReading | null {
+  const place = solution.board.installation;
+  if (!place || place.boardIndex === 0) return null;
+  const { installation, boardIndex } = place;
+  const parent = installation.subBoards[boardIndex - 1]!.fedFrom;
+  const ratingA = solution.board.lineRatingA;
+  const largest = Math.max(0, ...phases.map((p) => p.current.magnitude));
+  return {
+    fedFrom: parent === 0 ? installation.main.name : installation.subBoards[parent - 1]!.name,
+    kVA: phases.reduce((sum, p) => sum + (p.voltage.magnitude * p.current.magnitude) / 1000, 0),
+    largestLineCurrentA: largest,
+    ratingA,
+    loadingPercent: ratingA ? (100 * largest) / ratingA : null,
+  };
 }
 
 /**

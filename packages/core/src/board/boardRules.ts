@@ -4,16 +4,17 @@
  * them so the user sees every problem in one pass.
  */
 import { inputIssue, type InputIssue } from '../errors.js';
-import type { BoardSpec, ConductorSpec, FeederSpec, LoadSpec, SupplySpec, SystemKind } from './boardSchema.js';
+import type { BoardBaseSpec, ConductorSpec, FeederSpec, LoadBaseSpec, SupplySpec, SystemKind } from './boardSchema.js';
 import { isThreePhase, phasesOf, systemHasNeutral } from './systemTopology.js';
 import { conductorResistance, tabulatedSizes } from './cableLibrary.js';
 import { isPerPhaseLine, lengthOf, materialOf, sizeOf } from './feederModel.js';
 
-type Rule = (board: BoardSpec) => InputIssue[];
+/** A cross-field rule: the problems it finds in a board that passed the schema. Studies add their own (boardFile/). */
+export type BoardRule<T extends BoardBaseSpec = BoardBaseSpec> = (board: T) => InputIssue[];
 
 const RATING_FORMS = 'exactly one rating: kW (pf 1 when not given), kW with pf, kVA with pf, A with pf, kW with kvar, or ohms';
 
-function ruleVoltageGiven(board: BoardSpec): InputIssue[] {
+function ruleVoltageGiven(board: BoardBaseSpec): InputIssue[] {
   const { lineToLine, lineToNeutral } = board.supply.voltage;
   const path = 'supply.voltage';
   if (lineToLine === undefined && lineToNeutral === undefined)
@@ -25,13 +26,13 @@ function ruleVoltageGiven(board: BoardSpec): InputIssue[] {
   return [];
 }
 
-function ruleSourceImpedance(board: BoardSpec): InputIssue[] {
+function ruleSourceImpedance(board: BoardBaseSpec): InputIssue[] {
   if (board.supply.impedance && board.supply.transformer)
     return [inputIssue('conflict', 'supply', 'either impedance or transformer, not both', 'both')];
   return [];
 }
 
-function ruleEmfPhases(board: BoardSpec): InputIssue[] {
+function ruleEmfPhases(board: BoardBaseSpec): InputIssue[] {
   const emf = board.supply.emf;
   if (!emf) return [];
   const phases = phasesOf(board.supply.system);
@@ -73,7 +74,7 @@ function conductorIssues(conductor: ConductorSpec | undefined, path: string, fee
   return issues;
 }
 
-function lineConductorIssues(feeder: FeederSpec | undefined, path: string, system: BoardSpec['supply']['system']): InputIssue[] {
+function lineConductorIssues(feeder: FeederSpec | undefined, path: string, system: BoardBaseSpec['supply']['system']): InputIssue[] {
   const line = feeder?.line;
   if (!line) return [];
   if (!isPerPhaseLine(line)) return conductorIssues(line, path, feeder);
@@ -89,7 +90,7 @@ function lineConductorIssues(feeder: FeederSpec | undefined, path: string, syste
 }
 
 /** Checks a feeder; `path` is where it sits (`feeder`, `boards[2].feeder`). */
-export function feederIssues(feeder: FeederSpec | undefined, path: string, system: BoardSpec['supply']['system']): InputIssue[] {
+export function feederIssues(feeder: FeederSpec | undefined, path: string, system: BoardBaseSpec['supply']['system']): InputIssue[] {
   const issues = [...lineConductorIssues(feeder, `${path}.line`, system), ...conductorIssues(feeder?.neutral, `${path}.neutral`, feeder)];
   if (feeder?.lengthM !== undefined && feeder.lengthFt !== undefined) issues.push(inputIssue('conflict', path, 'one length: lengthM or lengthFt', 'both'));
   if (feeder?.neutral && !systemHasNeutral(system))
@@ -97,12 +98,12 @@ export function feederIssues(feeder: FeederSpec | undefined, path: string, syste
   return issues;
 }
 
-function ruleFeeder(board: BoardSpec): InputIssue[] {
+function ruleFeeder(board: BoardBaseSpec): InputIssue[] {
   return feederIssues(board.feeder, 'feeder', board.supply.system);
 }
 
 /** The ways to give a source impedance are exclusive; each has systems it suits. */
-function ruleUnequalSource(board: BoardSpec): InputIssue[] {
+function ruleUnequalSource(board: BoardBaseSpec): InputIssue[] {
   const { impedance, transformer, bank, openDelta, zeroSequence, system } = board.supply;
   const issues: InputIssue[] = [];
   const given = [impedance && 'impedance', transformer && 'transformer', bank && 'bank', openDelta && 'openDelta'].filter((x): x is string => !!x);
@@ -137,7 +138,7 @@ function ruleUnequalSource(board: BoardSpec): InputIssue[] {
   return issues;
 }
 
-function ratingIssues(load: LoadSpec, path: string): InputIssue[] {
+function ratingIssues(load: LoadBaseSpec, path: string): InputIssue[] {
   const has = (v: unknown) => v !== undefined;
   const forms = [
     has(load.kW) && !has(load.kvar) && !has(load.kVA) && !has(load.A),
@@ -156,7 +157,7 @@ function ratingIssues(load: LoadSpec, path: string): InputIssue[] {
   return issues;
 }
 
-function modelIssues(load: LoadSpec, path: string): InputIssue[] {
+function modelIssues(load: LoadBaseSpec, path: string): InputIssue[] {
   if (load.model !== undefined && load.zip !== undefined)
     return [inputIssue('conflict', path, 'either model or zip, not both', 'both')];
   if (load.zip) {
@@ -166,7 +167,7 @@ function modelIssues(load: LoadSpec, path: string): InputIssue[] {
   return [];
 }
 
-function connectionIssues(load: LoadSpec, path: string, system: SystemKind): InputIssue[] {
+function connectionIssues(load: LoadBaseSpec, path: string, system: SystemKind): InputIssue[] {
   const phases = phasesOf(system);
   const issues: InputIssue[] = [];
   const c = load.connection;
@@ -188,7 +189,7 @@ function connectionIssues(load: LoadSpec, path: string, system: SystemKind): Inp
 }
 
 /** The connections a load may use on each system. */
-export function acceptedConnections(system: BoardSpec['supply']['system']): string[] {
+export function acceptedConnections(system: BoardBaseSpec['supply']['system']): string[] {
   switch (system) {
     case 'three-phase-4wire':
       return ['A-N', 'B-N', 'C-N', 'A-B', 'B-C', 'C-A', 'ABC-star', 'ABC-delta'];
@@ -205,7 +206,7 @@ export function acceptedConnections(system: BoardSpec['supply']['system']): stri
  * Load-by-load rules and duplicate names. `loads` may have holes where a load failed the schema
  * (forEach skips them, indices stay the file's); without a valid supply the connection check waits.
  */
-function loadIssues(loads: readonly (LoadSpec | undefined)[], system: SystemKind | null): InputIssue[] {
+function loadIssues(loads: readonly (LoadBaseSpec | undefined)[], system: SystemKind | null): InputIssue[] {
   const issues: InputIssue[] = [];
   const names = new Map<string, number>();
   loads.forEach((load, i) => {
@@ -223,27 +224,7 @@ function loadIssues(loads: readonly (LoadSpec | undefined)[], system: SystemKind
   return issues;
 }
 
-/**
- * Harmonic fields of a load: a spectrum makes it a current source at harmonic
- * orders, so a linear form does not apply; a floating star of fixed impedance
- * keeps its own star point, which current sources alone would leave undefined.
- */
-function ruleHarmonicFields(board: BoardSpec): InputIssue[] {
-  const issues: InputIssue[] = [];
-  board.loads.forEach((load, i) => {
-    const path = `loads[${i}]`;
-    if (load.spectrum === undefined || load.spectrum === 'linear') return;
-    if (load.linearForm !== undefined)
-      issues.push(inputIssue('conflict', `${path}.linearForm`, 'linearForm only on loads without a spectrum (a non-linear load is a current source at harmonic orders)', load.linearForm));
-    const floating = load.connection === 'ABC-star' && (load.starPoint === 'floating' || !systemHasNeutral(board.supply.system));
-    const fixedImpedance = load.ohms !== undefined || load.model === 'constant-impedance' || load.zip?.z === 1;
-    if (floating && fixedImpedance)
-      issues.push(inputIssue('not_applicable', `${path}.spectrum`, 'a spectrum on ABC-delta loads or stars tied to the neutral (describe a floating-star non-linear load as ABC-delta)', 'a floating star'));
-  });
-  return issues;
-}
-
-function ruleLoads(board: BoardSpec): InputIssue[] {
+function ruleLoads(board: BoardBaseSpec): InputIssue[] {
   return loadIssues(board.loads, board.supply.system);
 }
 
@@ -253,7 +234,7 @@ export interface BoardParts {
   /** undefined when the board has no feeder; null when it has one that failed the schema. */
   readonly feeder: FeederSpec | null | undefined;
   /** Loads that passed the schema at their index in the file; holes where one failed. */
-  readonly loads: readonly (LoadSpec | undefined)[];
+  readonly loads: readonly (LoadBaseSpec | undefined)[];
 }
 
 /**
@@ -263,7 +244,7 @@ export interface BoardParts {
 export function partialBoardIssues(parts: BoardParts): InputIssue[] {
   const issues: InputIssue[] = [];
   if (parts.supply) {
-    const board = { supply: parts.supply, feeder: parts.feeder ?? undefined, loads: [] } as unknown as BoardSpec;
+    const board = { supply: parts.supply, feeder: parts.feeder ?? undefined, loads: [] } as unknown as BoardBaseSpec;
     issues.push(...ruleVoltageGiven(board), ...ruleSourceImpedance(board), ...ruleUnequalSource(board), ...ruleEmfPhases(board));
     if (parts.feeder !== null) issues.push(...ruleFeeder(board));
   }
@@ -271,4 +252,5 @@ export function partialBoardIssues(parts: BoardParts): InputIssue[] {
   return issues;
 }
 
-export const BOARD_RULES: readonly Rule[] = [ruleVoltageGiven, ruleSourceImpedance, ruleUnequalSource, ruleEmfPhases, ruleFeeder, ruleLoads, ruleHarmonicFields];
+/** The board's own rules; boardFile/ appends the studies' rules after these. */
+export const BOARD_RULES: readonly BoardRule[] = [ruleVoltageGiven, ruleSourceImpedance, ruleUnequalSource, ruleEmfPhases, ruleFeeder, ruleLoads];

@@ -1,16 +1,17 @@
 /**
- * The board file, as a zod schema. One source of truth for validation, the
- * TypeScript types (`BoardSpec`) and the exported JSON Schema.
+ * The board itself, as zod schemas: supply, feeder, loads, the what-if
+ * studies of a solve. One source of truth for validation, the TypeScript types
+ * and the exported JSON Schema.
+ *
+ * The studies add load fields and file sections of their own; `boardSchemaWith`
+ * is where they plug in, and boardFile/boardFileSchema.ts (above the studies)
+ * composes the whole file, so this layer never imports a study.
  *
  * Shape rules that zod cannot say neatly (exactly one way to rate a load, a
  * neutral load on a board with no neutral...) live in `boardRules.ts`.
  */
 import * as z from 'zod';
 import { groupDigits } from '../_internal/groupDigits.js';
-import { correctionSpecSchema } from '../correction/correctionSpec.js';
-import { profileSpecSchema } from '../profile/profileSpec.js';
-import { harmonicsSectionSchema, linearFormSchema, spectrumSchema } from '../harmonics/harmonicsSpec.js';
-import { rebalanceSpecSchema } from '../rebalance/rebalanceSpec.js';
 
 const nonNegative = z.number().nonnegative();
 
@@ -180,8 +181,6 @@ export const loadSchema = z.strictObject({
     .strictObject({ z: nonNegative.max(1), i: nonNegative.max(1), p: nonNegative.max(1) })
     .optional()
     .describe('ZIP fractions of constant impedance, current and power; must sum to 1'),
-  spectrum: spectrumSchema.optional().describe('harmonic currents of a non-linear load: a built-in typical spectrum or a list; default none (linear)'),
-  linearForm: linearFormSchema.optional().describe('for a linear load at harmonic orders: series R + jX or parallel R ‖ jX; default from harmonics.linearForm (parallel); ohms loads keep series'),
 });
 
 export const studiesSchema = z
@@ -190,28 +189,43 @@ export const studiesSchema = z
   })
   .describe('extra what-if studies to run with the solve');
 
-export const boardSchema = z
-  .strictObject({
-    $schema: z.string().optional(),
-    name: z.string().min(1).optional().describe('board name'),
-    note: z.string().optional().describe('free text'),
-    supply: supplySchema,
-    feeder: feederSchema.optional(),
-    loads: z.array(loadSchema).min(1).describe('the circuits on the board'),
-    studies: studiesSchema.optional(),
-    correction: correctionSpecSchema
-      .partial()
-      .optional()
-      .describe('a power-factor correction study for `trivar correct` (command-line options override it)'),
-    profile: profileSpecSchema.optional(),
-    harmonics: harmonicsSectionSchema.optional(),
-    rebalance: rebalanceSpecSchema.optional(),
-  })
-  .describe('a trivar board file');
+/** What a study adds to a board file: fields on every load, and sections of the file. */
+export interface BoardFileExtension<L extends z.ZodRawShape, S extends z.ZodRawShape> {
+  readonly loadFields: L;
+  readonly sections: S;
+}
 
-/** A board as written in a board file (validated). */
-export type BoardSpec = z.infer<typeof boardSchema>;
-export type LoadSpec = z.infer<typeof loadSchema>;
+/** The load schema with a study's fields appended (after the board's own, so the JSON Schema keeps its order). */
+export const loadSchemaWith = <L extends z.ZodRawShape>(loadFields: L) => loadSchema.extend(loadFields);
+
+/**
+ * The board file's schema with the studies' load fields and sections added:
+ * the extension point boardFile/ uses to compose the whole file.
+ */
+export function boardSchemaWith<L extends z.ZodRawShape, S extends z.ZodRawShape>(extension: BoardFileExtension<L, S>) {
+  return z
+    .strictObject({
+      $schema: z.string().optional(),
+      name: z.string().min(1).optional().describe('board name'),
+      note: z.string().optional().describe('free text'),
+      supply: supplySchema,
+      feeder: feederSchema.optional(),
+      loads: z.array(loadSchemaWith(extension.loadFields)).min(1).describe('the circuits on the board'),
+      studies: studiesSchema.optional(),
+      ...extension.sections,
+    })
+    .describe('a trivar board file');
+}
+
+/** The board without any study's fields: what this layer and the solver read. */
+export const boardBaseSchema = boardSchemaWith({ loadFields: {}, sections: {} });
+
+/**
+ * A board as the board layer reads it (validated): supply, feeder, loads, studies.
+ * A whole board file (boardFile/ `BoardSpec`) is one of these with study fields added.
+ */
+export type BoardBaseSpec = z.infer<typeof boardBaseSchema>;
+export type LoadBaseSpec = z.infer<typeof loadSchema>;
 export type SupplySpec = z.infer<typeof supplySchema>;
 export type ConductorSpec = z.infer<typeof conductorSchema>;
 export type PerPhaseConductorSpec = z.infer<typeof perPhaseConductorSchema>;

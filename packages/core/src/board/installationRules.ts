@@ -4,12 +4,15 @@
  * loads checked at their own paths).
  */
 import { inputIssue, type InputIssue } from '../errors.js';
-import type { BoardSpec } from './boardSchema.js';
-import { BOARD_RULES } from './boardRules.js';
-import type { InstallationSpec } from './installationSchema.js';
+import type { BoardBaseSpec } from './boardSchema.js';
+import type { BoardRule } from './boardRules.js';
+import type { InstallationBaseSpec } from './installationSchema.js';
+
+/** One board of an installation on its own, its loads as the installation file types them (with any study fields). */
+export type BoardOfInstallation<I extends InstallationBaseSpec> = Omit<BoardBaseSpec, 'loads'> & { loads: I['boards'][number]['loads'] };
 
 /** The board spec a board of the installation would be on its own (supply, its feeder, its loads). */
-export function boardSpecOf(spec: InstallationSpec, index: number): BoardSpec {
+export function boardSpecOf<I extends InstallationBaseSpec>(spec: I, index: number): BoardOfInstallation<I> {
   const b = spec.boards[index]!;
   return {
     name: b.name,
@@ -26,7 +29,7 @@ function moved(issue: InputIssue, prefix: string): InputIssue {
   return { ...issue, path, message: issue.message.startsWith(issue.path) ? `${path}${issue.message.slice(issue.path.length)}` : issue.message };
 }
 
-function ruleTree(spec: InstallationSpec): InputIssue[] {
+function ruleTree(spec: InstallationBaseSpec): InputIssue[] {
   const issues: InputIssue[] = [];
   const index = new Map<string, number>();
   spec.boards.forEach((b, i) => {
@@ -64,15 +67,20 @@ function ruleTree(spec: InstallationSpec): InputIssue[] {
   return issues;
 }
 
-function ruleBoards(spec: InstallationSpec): InputIssue[] {
-  return spec.boards.flatMap((_, i) => {
-    const own = boardSpecOf(spec, i);
-    // Supply rules are reported once, from the first board; the rest are the board's own.
-    return BOARD_RULES.flatMap((rule) => rule(own)).flatMap((issue) => {
-      if (issue.path.startsWith('supply')) return i === 0 ? [issue] : [];
-      return [moved(issue, `boards[${i}]`)];
+/** Each board passes the board rules given (the board's own and the studies'), at its own paths. */
+const ruleBoards =
+  <I extends InstallationBaseSpec>(boardRules: readonly BoardRule<BoardOfInstallation<I>>[]) =>
+  (spec: I): InputIssue[] =>
+    spec.boards.flatMap((_, i) => {
+      const own = boardSpecOf(spec, i);
+      // Supply rules are reported once, from the first board; the rest are the board's own.
+      return boardRules.flatMap((rule) => rule(own)).flatMap((issue) => {
+        if (issue.path.startsWith('supply')) return i === 0 ? [issue] : [];
+        return [moved(issue, `boards[${i}]`)];
+      });
     });
-  });
-}
 
-export const INSTALLATION_RULES = [ruleTree, ruleBoards] as const;
+/** The installation's rules: one radial tree, then every board against `boardRules`. */
+export function installationRulesWith<I extends InstallationBaseSpec>(boardRules: readonly BoardRule<BoardOfInstallation<I>>[]): readonly ((spec: I) => InputIssue[])[] {
+  return [ruleTree, ruleBoards<I>(boardRules)];
+}

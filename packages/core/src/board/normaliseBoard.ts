@@ -1,9 +1,9 @@
 /**
- * BoardSpec (what the user wrote) → Board (SI units, complex impedances,
+ * A board spec (what the user wrote) → Board (SI units, complex impedances,
  * branches). Assumes a validated spec; see `validateBoard`.
  */
 import { add, complex, degToRad, inverse, polar, scale, sub, conj, type ComplexValue } from '../complex.js';
-import type { BoardSpec, LoadSpec, WindingSpec } from './boardSchema.js';
+import type { BoardBaseSpec, LoadBaseSpec, WindingSpec } from './boardSchema.js';
 import { feederModel } from './feederModel.js';
 import type { Board, BoardLoad, LoadBranch, Terminal, ZipFractions } from './boardModel.js';
 import { phasesOf, systemHasNeutral, type PhaseId } from './systemTopology.js';
@@ -15,13 +15,13 @@ const ZIP_OF_MODEL: Record<string, ZipFractions> = {
 };
 
 /** Angle of each phase EMF for a balanced source, degrees. */
-export function balancedAnglesDeg(system: BoardSpec['supply']['system'], sequence: 'ABC' | 'ACB'): number[] {
+export function balancedAnglesDeg(system: BoardBaseSpec['supply']['system'], sequence: 'ABC' | 'ACB'): number[] {
   if (system === 'single-phase') return [0];
   if (system === 'split-phase') return [0, 180];
   return sequence === 'ABC' ? [0, -120, 120] : [0, 120, -120];
 }
 
-function nominalVoltages(spec: BoardSpec): { ln: number; ll: number | null } {
+function nominalVoltages(spec: BoardBaseSpec): { ln: number; ll: number | null } {
   const { lineToLine, lineToNeutral } = spec.supply.voltage;
   const ratio = spec.supply.system === 'split-phase' ? 2 : Math.sqrt(3);
   if (spec.supply.system === 'single-phase') return { ln: lineToNeutral ?? Number.NaN, ll: null };
@@ -45,7 +45,7 @@ const windingImpedance = (w: WindingSpec, v: number): ComplexValue => ('kVA' in 
  * taken as half the full-winding impedance (a simplification; real centre-tapped
  * units have a higher line-to-neutral impedance — common practice, no source).
  */
-function sourceImpedance(spec: BoardSpec, ln: number, ll: number | null): ComplexValue {
+function sourceImpedance(spec: BoardBaseSpec, ln: number, ll: number | null): ComplexValue {
   const { impedance, transformer, system } = spec.supply;
   if (impedance && 'r' in impedance) return complex(impedance.r, impedance.x);
   if (!transformer) return complex(0, 0);
@@ -55,7 +55,7 @@ function sourceImpedance(spec: BoardSpec, ln: number, ll: number | null): Comple
 }
 
 /** The unequal-source fields of a board: per-phase impedances, open-delta corner, star-point return. */
-function unequalSource(spec: BoardSpec, phases: readonly PhaseId[], ln: number, ll: number | null): Partial<Pick<Board, 'sourceImpedances' | 'openDeltaCorner' | 'sourceStarImpedance'>> {
+function unequalSource(spec: BoardBaseSpec, phases: readonly PhaseId[], ln: number, ll: number | null): Partial<Pick<Board, 'sourceImpedances' | 'openDeltaCorner' | 'sourceStarImpedance'>> {
   const { impedance, bank, openDelta, zeroSequence } = spec.supply;
   const out: { -readonly [K in 'sourceImpedances' | 'openDeltaCorner' | 'sourceStarImpedance']?: Board[K] } = {};
   if (impedance && !('r' in impedance)) out.sourceImpedances = phases.map((p) => (impedance[p] ? complex(impedance[p].r, impedance[p].x) : complex(0, 0)));
@@ -85,7 +85,7 @@ function unequalSource(spec: BoardSpec, phases: readonly PhaseId[], ln: number, 
 const mean = (zs: readonly ComplexValue[]) => scale(zs.reduce(add, complex(0, 0)), 1 / zs.length);
 
 /** Total complex power of a load at nominal voltage, VA, from its rating. */
-function nominalPower(load: LoadSpec, branchVoltage: number, branchCount: number, lineCurrentToVA: number): ComplexValue {
+function nominalPower(load: LoadBaseSpec, branchVoltage: number, branchCount: number, lineCurrentToVA: number): ComplexValue {
   const sign = load.sense === 'leading' ? -1 : 1;
   const reactiveShare = (pf: number) => Math.sqrt(1 - pf * pf);
   if (load.ohms) {
@@ -102,7 +102,7 @@ function nominalPower(load: LoadSpec, branchVoltage: number, branchCount: number
   return complex(s * pf, sign * s * reactiveShare(pf));
 }
 
-function loadBranches(load: LoadSpec, index: number, spec: BoardSpec, ln: number, ll: number | null): BoardLoad {
+function loadBranches(load: LoadBaseSpec, index: number, spec: BoardBaseSpec, ln: number, ll: number | null): BoardLoad {
   const zip = load.zip ?? ZIP_OF_MODEL[load.model ?? (load.ohms ? 'constant-impedance' : 'constant-power')]!;
   const model = load.zip ? 'zip' : (load.model ?? (load.ohms ? 'constant-impedance' : 'constant-power'));
   const llV = ll ?? ln;
@@ -136,7 +136,7 @@ function loadBranches(load: LoadSpec, index: number, spec: BoardSpec, ln: number
 }
 
 /** Turns a validated board spec into the solver's model. */
-export function normaliseBoard(spec: BoardSpec): Board {
+export function normaliseBoard(spec: BoardBaseSpec): Board {
   const system = spec.supply.system;
   const phases = phasesOf(system);
   const sequence = spec.supply.sequence ?? 'ABC';

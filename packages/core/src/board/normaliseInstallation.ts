@@ -1,15 +1,15 @@
-/** InstallationSpec → Installation (the solver's model). Assumes a validated spec. */
+/** InstallationBaseSpec → Installation (the solver's model). Assumes a validated spec. */
 import type { Installation, SubBoard } from './boardModel.js';
 import { normaliseBoard } from './normaliseBoard.js';
 import { feederModel } from './feederModel.js';
-import type { InstallationSpec } from './installationSchema.js';
+import type { InstallationBaseSpec } from './installationSchema.js';
 import { boardSpecOf } from './installationRules.js';
 
 /**
  * Board numbers: 0 is the main board, then the other boards in file order.
  * @returns the installation and, per board of the file, its board number.
  */
-export function normaliseInstallation(spec: InstallationSpec): { installation: Installation; boardNumber: number[] } {
+export function normaliseInstallation(spec: InstallationBaseSpec): { installation: Installation; boardNumber: number[] } {
   const mainIndex = spec.boards.findIndex((b) => b.fedFrom === undefined);
   const boardNumber: number[] = [];
   let next = 1;

@@ -20,6 +20,7 @@ import { kvarFromSusceptance } from './equipment.js';
 import type { CorrectionReport, CorrectionStatus } from './correctionResult.js';
 import { ARRANGEMENT_NAMES, comparisonWording } from './correctionWording.js';
 import { balanceWorsening } from './balanceWorsening.js';
+import { assertViableBoard } from '../analysis/viableOperatingPoint.js';
 
 /** One arrangement's outcome in figures a reader compares. */
 export interface ArrangementFigures {
@@ -119,6 +120,7 @@ const STATUS_RANK: Record<CorrectionStatus, number> = {
  * @param spec the study without an arrangement (one given is ignored: all are compared)
  * @returns each arrangement's report and figures, the recommendation and why
  * @throws {InputError} for a study that is not valid for the board
+ * @throws {NumericalError} reason `collapsed` when the supply cannot carry the board's loads as they are
  * @example
  * const c = compareCorrections(board, { target: { pf: 0.95 } });
  * c.recommended //=> 'delta-bank'
@@ -126,6 +128,7 @@ const STATUS_RANK: Record<CorrectionStatus, number> = {
  */
 export function compareCorrections(board: Board, spec: unknown): CorrectionComparison {
   const parsed = parseCorrectionSpec(spec, board);
+  assertViableBoard(board);
   const outcomes = arrangementsFor(board).map((arrangement): ArrangementOutcome => {
     try {
       const report = correctBoard(board, specFor(parsed, arrangement));

@@ -21,6 +21,7 @@ import { scaleBoardLoads } from './scaleBoardLoads.js';
 import type { BankSizing, CompensatorSizing, CorrectionReport, CorrectionStatus, CorrectionWarning, SizedEquipment } from './correctionResult.js';
 import { ARRANGEMENT_NAMES, CORRECTION_CAUTIONS, infeasibleReason, reportSummary, warningText } from './correctionWording.js';
 import { definedOnly } from './_internal/optionSchemas.js';
+import { assertViableBoard } from '../analysis/viableOperatingPoint.js';
 
 function sizeArrangement(board: Board, spec: CorrectionSpec & { arrangement: Arrangement }): BankSizing | CompensatorSizing {
   switch (spec.arrangement) {
@@ -82,7 +83,8 @@ function reactorWords(equipment: readonly EquipmentGroup[]): string {
  *   sizing, the chosen units, the verified before/after results (with the
  *   corrected `Board`), warnings and cautions
  * @throws {InputError} for a spec that is not valid for the board (each issue names its field path)
- * @throws {NumericalError} if a solve fails
+ * @throws {NumericalError} if a solve fails, or (reason `collapsed`) when the supply cannot carry
+ *   the board's loads as they are: equipment sized for that state would be sized for a state that cannot exist
  * @example
  * const report = correctBoard(board, { arrangement: 'star-bank', target: { pf: 0.95 }, lightLoad: { fraction: 0.3 } });
  * report.status //=> 'meets-target'
@@ -95,6 +97,7 @@ export function correctBoard(board: Board, spec: unknown): CorrectionReport {
       [inputIssue('missing', 'arrangement', 'star-bank, delta-bank or balancing-compensator (compareCorrections sizes and compares them all)', undefined)],
       'the correction settings are not valid',
     );
+  assertViableBoard(board);
   const parsed = { ...checked, arrangement: checked.arrangement };
   const target = resolveTarget(parsed.target, board, parsed.arrangement);
   const sizing = sizeArrangement(board, parsed);

@@ -9,7 +9,8 @@ import type { Board, PhaseId } from '../board/boardModel.js';
 import type { BoardResult } from '../analysis/boardResult.js';
 import { analyseSolution } from '../analysis/analyseSolution.js';
 import { solveNetwork, type SolveOptions } from '../network/solveNetwork.js';
-import { abs, add } from '../complex.js';
+import { abs } from '../complex.js';
+import { supplyPathImpedance } from '../network/installationModel.js';
 import { lightLoadSchema, targetSchema, ARRANGEMENTS, type Arrangement, type CapacitanceToleranceSpec, type LightLoadSpec, type TargetSpec } from './correctionSpec.js';
 import { CORRECTION_DEFAULTS } from './correctionDefaults.js';
 import { checkTarget, lineTanBounds, resolveTarget, TARGET_SLACK } from './correctionTarget.js';
@@ -53,7 +54,8 @@ const verifyOptionsSchema = z.strictObject({
 const WATCHED_ORDERS = [3, 5, 7, 11, 13];
 
 function shortCircuitVA(board: Board): number | null {
-  const z = abs(add(board.sourceImpedance, board.lineImpedance));
+  // On a sub-board, through every feeder above it back to the source.
+  const z = abs(supplyPathImpedance(board));
   return z === 0 ? null : (board.phases.length * board.nominalLineToNeutralV ** 2) / z;
 }
 

@@ -8,7 +8,7 @@
 import type { Board, BoardLoad, PhaseId } from '../board/boardModel.js';
 import type { ConnectionSpec } from '../board/boardSchema.js';
 import type { BoardResult } from '../analysis/boardResult.js';
-import { solveBoardModel } from '../solveBoard.js';
+import { solveBoardModel } from '../analysis/solveBoardModel.js';
 import { CORRECTION_CAUTIONS } from '../correction/correctionWording.js';
 import { parseHandFigures } from './validateHandFigures.js';
 import type { HandFiguresSpec } from './handFiguresSpec.js';

@@ -16,7 +16,6 @@
  * its detuning factor, and its harmonics are solved with the series L–C steps.
  */
 import type { Board, BoardLoad, Terminal } from '../board/boardModel.js';
-import type { BoardSpec } from '../board/boardSchema.js';
 import { correctBoard } from '../correction/correctBoard.js';
 import { compareCorrections, figuresOf, specFor, type CorrectionComparison } from '../correction/compareCorrections.js';
 import type { Arrangement } from '../correction/correctionSpec.js';
@@ -27,6 +26,7 @@ import type { BankStep, CorrectionReport, CorrectionWarning } from '../correctio
 import { ARRANGEMENT_NAMES, CORRECTION_CAUTIONS, reportSummary } from '../correction/correctionWording.js';
 import type { CapacitorUnitSpec } from '../correction/correctionSpec.js';
 import { resolveHarmonicModel, type BankModel } from './harmonicModel.js';
+import type { HarmonicsBoardSpec } from './harmonicsSpec.js';
 import { analyseHarmonics } from './studyHarmonics.js';
 import { DETUNING_FACTORS_PERCENT, capacitorVoltage, tuningOrder } from './detuning.js';
 import { dutyRatio } from './capacitorDuty.js';
@@ -86,7 +86,7 @@ export interface CorrectionHarmonics {
 export type HarmonicCorrectionReport = CorrectionReport & { readonly harmonics: CorrectionHarmonics };
 
 /** True when the board file gives the harmonic study something to work on. */
-export function boardHasHarmonicData(spec: BoardSpec): boolean {
+export function boardHasHarmonicData(spec: HarmonicsBoardSpec): boolean {
   return spec.harmonics !== undefined || spec.loads.some((l) => l.spectrum !== undefined && l.spectrum !== 'linear');
 }
 
@@ -210,7 +210,7 @@ export function bankOfReport(board: Board, report: CorrectionReport): { board: B
   };
 }
 
-function variantOf(spec: BoardSpec, board: Board, report: CorrectionReport, name: string, percent: number): VariantRun {
+function variantOf(spec: HarmonicsBoardSpec, board: Board, report: CorrectionReport, name: string, percent: number): VariantRun {
   const p = percent / 100;
   const bank = bankOfReport(board, report);
   const harmonics = bank ? analyseHarmonics(bank.board, resolveHarmonicModel(spec, bank.board, bank.model)) : null;
@@ -264,7 +264,7 @@ const SIGNIFICANT_THIRD = 0.1;
  * @param board `normaliseBoard(spec)`
  * @param study the correction study (as for `correctBoard`)
  */
-export function correctWithHarmonics(spec: BoardSpec, board: Board, study: unknown): HarmonicCorrectionReport {
+export function correctWithHarmonics(spec: HarmonicsBoardSpec, board: Board, study: unknown): HarmonicCorrectionReport {
   const plain = variantOf(spec, board, correctBoard(board, study), 'plain', 0);
   const parsed = parseCorrectionSpec(study, board);
   const setting = spec.harmonics?.detuning ?? 'auto';
@@ -325,7 +325,7 @@ export type HarmonicComparison = CorrectionComparison & {
  * to an arrangement whose chosen variant passes — the comparison's own pick
  * when it does, else the passing one of best verdict and least cost.
  */
-export function compareWithHarmonics(spec: BoardSpec, board: Board, study: unknown): HarmonicComparison {
+export function compareWithHarmonics(spec: HarmonicsBoardSpec, board: Board, study: unknown): HarmonicComparison {
   const comparison = compareCorrections(board, study);
   const parsed = parseCorrectionSpec(study, board);
   const checked = comparison.outcomes.map((o) => {

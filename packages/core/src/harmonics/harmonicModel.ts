@@ -6,10 +6,9 @@
  * filled in (harmonicsDefaults.ts).
  */
 import type { Board, BoardLoad, Terminal } from '../board/boardModel.js';
-import type { BoardSpec } from '../board/boardSchema.js';
 import { degToRad } from '../complex.js';
 import { HARMONICS_DEFAULTS } from './harmonicsDefaults.js';
-import type { HarmonicsSectionSpec, InstalledBankSpec, LinearForm, SpectrumSpec } from './harmonicsSpec.js';
+import type { HarmonicLoadSpec, HarmonicsBoardSpec, HarmonicsSectionSpec, InstalledBankSpec, LinearForm, SpectrumSpec } from './harmonicsSpec.js';
 import { TYPICAL_SPECTRA } from './typicalSpectra.js';
 
 /** One order of a spectrum: magnitude as a fraction of the fundamental, angle relative to h × the fundamental angle. */
@@ -64,7 +63,7 @@ function spectrumContent(spec: Exclude<SpectrumSpec, string>): OrderContent[] {
   return spec.map((e) => ({ order: e.order, fraction: e.percent / 100, angleRad: degToRad(e.angleDeg ?? 0) })).sort((a, b) => a.order - b.order);
 }
 
-function behaviourOf(spec: BoardSpec['loads'][number] | undefined, load: BoardLoad, defaultForm: LinearForm): LoadBehaviour {
+function behaviourOf(spec: HarmonicLoadSpec | undefined, load: BoardLoad, defaultForm: LinearForm): LoadBehaviour {
   const spectrum = spec?.spectrum;
   if (spectrum !== undefined && spectrum !== 'linear') {
     if (typeof spectrum === 'string') {
@@ -127,7 +126,7 @@ export function addInstalledBank(board: Board, bank: InstalledBankSpec): { board
  * Resolves the harmonic behaviour of every load of `board` (normalised from
  * `spec`, the bank already added when there is one) and the study settings.
  */
-export function resolveHarmonicModel(spec: BoardSpec, board: Board, bank: BankModel | null): HarmonicModel {
+export function resolveHarmonicModel(spec: HarmonicsBoardSpec, board: Board, bank: BankModel | null): HarmonicModel {
   const section: HarmonicsSectionSpec = spec.harmonics ?? {};
   const defaultForm = section.linearForm ?? HARMONICS_DEFAULTS.linearForm;
   const bankLoads = new Set(bank ? [...(bank.fixedLoad === null ? [] : [bank.fixedLoad]), ...bank.stepLoads] : []);

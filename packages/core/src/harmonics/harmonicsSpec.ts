@@ -1,12 +1,14 @@
 /**
  * What a harmonic study reads from a board file, as zod schemas: a load's
- * `spectrum` and `linearForm`, and the board's `harmonics:` section
+ * `spectrum` and `linearForm` (`harmonicLoadFields`, added to every load by
+ * boardFile/), and the board's `harmonics:` section
  * (background supply distortion, an installed bank to check, TDD at the point
  * of common coupling, the frequency scan). Checks zod cannot say as a type
  * (whole orders, no repeats, a plausible total) are refinements here, so they
  * run wherever the schema does and name the field.
  */
 import * as z from 'zod';
+import type { BoardBaseSpec, LoadBaseSpec } from '../board/boardSchema.js';
 import { SPECTRUM_KINDS } from './typicalSpectra.js';
 
 /** Highest harmonic order studied: IEEE 519-2014 limits stop at h = 50. */
@@ -67,6 +69,14 @@ export const linearFormSchema = z
   .enum(LINEAR_FORMS)
   .describe('how a linear load is represented at harmonic orders: series R + jX or parallel R ‖ jX from its fundamental values');
 
+/** The fields a harmonic study adds to every load of a board file. */
+export const harmonicLoadFields = {
+  spectrum: spectrumSchema.optional().describe('harmonic currents of a non-linear load: a built-in typical spectrum or a list; default none (linear)'),
+  linearForm: linearFormSchema
+    .optional()
+    .describe('for a linear load at harmonic orders: series R + jX or parallel R ‖ jX; default from harmonics.linearForm (parallel); ohms loads keep series'),
+};
+
 export const backgroundSchema = z
   .array(entrySchema('harmonic voltage of the supply, % of the nominal voltage', MAX_BACKGROUND_PERCENT))
   .min(1)
@@ -118,3 +128,12 @@ export type SpectrumEntrySpec = z.infer<typeof spectrumEntriesSchema>[number];
 export type LinearForm = (typeof LINEAR_FORMS)[number];
 export type HarmonicsSectionSpec = z.infer<typeof harmonicsSectionSchema>;
 export type InstalledBankSpec = z.infer<typeof installedBankSchema>;
+export type HarmonicLoadSpec = LoadBaseSpec & z.infer<z.ZodObject<typeof harmonicLoadFields>>;
+/**
+ * What the harmonic study reads from a board file: the board, its loads' harmonic
+ * fields and the `harmonics:` section. A whole board file (`BoardSpec`) is one.
+ */
+export type HarmonicsBoardSpec = Omit<BoardBaseSpec, 'loads'> & {
+  loads: HarmonicLoadSpec[];
+  harmonics?: HarmonicsSectionSpec | undefined;
+};

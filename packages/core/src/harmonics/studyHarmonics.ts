@@ -4,7 +4,6 @@
  * power factors, judge TDD, scan the resonance for every step combination and
  * check the capacitor duty in each.
  */
-import { parseBoard } from '../board/validateBoard.js';
 import { normaliseBoard } from '../board/normaliseBoard.js';
 import type { Board, BoardLoad } from '../board/boardModel.js';
 import { abs, add } from '../complex.js';
@@ -17,6 +16,7 @@ import { combinationLabel, scanResonance, stepCombinations } from './scanResonan
 import { DUTY_LIMITS, dutyCase, dutyRatio } from './capacitorDuty.js';
 import { IEEE_519_SOURCE, IEEE_519_VOLTAGE_LIMITS, ieee519OrderLimit, ieee519Row } from './ieee519.js';
 import { HARMONICS_DEFAULTS } from './harmonicsDefaults.js';
+import type { HarmonicsBoardSpec } from './harmonicsSpec.js';
 import { HARMONICS_CAUTIONS, harmonicsWarningText, NEUTRAL_PRACTICE } from './harmonicsWording.js';
 import type { CapacitorDuty, DutyCase, HarmonicLineReading, HarmonicsReport, HarmonicsWarning, NeutralCheck, ResonanceScan, TddCheck } from './harmonicsResult.js';
 
@@ -214,22 +214,18 @@ export function analyseHarmonics(board: Board, model: HarmonicModel, options: Ha
 }
 
 /** A bank's steps are three-phase, so it needs a three-phase board. */
-function checkBank(spec: ReturnType<typeof parseBoard>, board: Board): void {
+function checkBank(spec: HarmonicsBoardSpec, board: Board): void {
   if (spec.harmonics?.bank && board.phases.length !== 3)
     throw new InputError([inputIssue('not_applicable', 'harmonics.bank', 'a bank on a three-phase board (its steps are three-phase)', board.system)]);
 }
 
 /**
- * Validates a board file and runs its harmonic study (`harmonics:` section,
- * load `spectrum` fields).
- * @throws {InputError} listing every problem, each with its field path
+ * Runs the harmonic study of a validated board file (`harmonics:` section, load
+ * `spectrum` fields). `studyHarmonics` validates the file first and calls this.
+ * @throws {InputError} for a bank on a board that is not three-phase
  * @throws {NumericalError} when a solve fails
- * @example
- * const report = studyHarmonics(boardObject);
- * report.neutral?.ratioToPhase //=> 1.7 for balanced switch-mode loads (typical spectrum)
  */
-export function studyHarmonics(input: unknown, options: HarmonicsOptions = {}): HarmonicsReport {
-  const spec = parseBoard(input);
+export function studyBoardHarmonics(spec: HarmonicsBoardSpec, options: HarmonicsOptions = {}): HarmonicsReport {
   const plain = normaliseBoard(spec);
   checkBank(spec, plain);
   const withBank = spec.harmonics?.bank ? addInstalledBank(plain, spec.harmonics.bank) : { board: plain, model: null };

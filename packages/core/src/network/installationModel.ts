@@ -47,6 +47,8 @@ export function boardOfInstallation(installation: Installation, index: number): 
   return {
     ...supply,
     name: sb.name,
+    // A sub-board sees the transformer only through the boards above it: its own loading is its feeder's.
+    transformerKVA: null,
     sourceImpedance: ZERO,
     lineImpedance: mean(sb.feeder.lineImpedances),
     lineImpedances: sb.feeder.lineImpedances,
@@ -57,4 +59,23 @@ export function boardOfInstallation(installation: Installation, index: number): 
     loads: sb.loads,
     installation: place!,
   };
+}
+
+/**
+ * Series impedance from the source EMF to a board, per line (the mean of the phases where they differ):
+ * the source, the service feeder, and every feeder on the way down. What the short-circuit power at the
+ * board is computed from (loads left out, as usual for S_sc).
+ */
+export function supplyPathImpedance(board: Board): ComplexValue {
+  const place = board.installation;
+  if (!place || place.boardIndex === 0) return add(board.sourceImpedance, board.lineImpedance);
+  const { installation } = place;
+  const main = installation.main;
+  let z = add(main.sourceImpedance, main.lineImpedances ? mean(main.lineImpedances) : main.lineImpedance);
+  for (let b = place.boardIndex; b !== 0; b = installation.subBoards[b - 1]!.fedFrom) {
+    // The board's own feeder as the board carries it (a study may have edited it), the others from the installation.
+    const feeder = b === place.boardIndex ? (board.lineImpedances ?? [board.lineImpedance]) : installation.subBoards[b - 1]!.feeder.lineImpedances;
+    z = add(z, mean(feeder));
+  }
+  return z;
 }

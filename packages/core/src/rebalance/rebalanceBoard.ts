@@ -9,7 +9,7 @@ import type { Board } from '../board/boardModel.js';
 import type { ConnectionSpec } from '../board/boardSchema.js';
 import { InputError, inputIssue } from '../errors.js';
 import { parseOptions } from '../_internal/zodIssues.js';
-import { solveBoardModel } from '../solveBoard.js';
+import { solveBoardModel } from '../analysis/solveBoardModel.js';
 import type { BoardResult } from '../analysis/boardResult.js';
 import * as z from 'zod';
 import {

@@ -1,9 +1,9 @@
 /** Report sections about the board itself: description, panel schedule, solved results, lost neutral. */
-import type { BoardSpec, ImpedanceSpec } from '../../board/boardSchema.js';
+import type { BoardBaseSpec, ImpedanceSpec } from '../../board/boardSchema.js';
 import { describeConductor, isPerPhaseLine } from '../../board/feederModel.js';
 
 /** A source impedance as entered: one for all phases, or one per phase. */
-function impedanceWords(z: NonNullable<BoardSpec['supply']['impedance']>): string {
+function impedanceWords(z: NonNullable<BoardBaseSpec['supply']['impedance']>): string {
   if ('r' in z) return `${z.r} + j${z.x} Ω`;
   return (['A', 'B', 'C'] as const)
     .filter((p) => z[p])
@@ -26,7 +26,7 @@ const SYSTEM_WORDS: Readonly<Record<string, string>> = {
 const pfWords = (pf: number | null, sense: string): string => (pf === null ? '—' : `${fixed(pf, 3)}${sense === 'unity' ? '' : sense === 'lagging' ? ' lag' : ' lead'}`);
 const orDash = (x: number | null | undefined, digits: number): string => (x === null || x === undefined ? '—' : fixed(x, digits));
 
-function conductorWords(line: NonNullable<BoardSpec['feeder']>['line'], feeder?: BoardSpec['feeder']): string {
+function conductorWords(line: NonNullable<BoardBaseSpec['feeder']>['line'], feeder?: BoardBaseSpec['feeder']): string {
   if (!line) return 'none entered (zero impedance)';
   if (isPerPhaseLine(line)) return (['A', 'B', 'C'] as const).filter((p) => line[p]).map((p) => `${p}: ${conductorWords(line[p], feeder)}`).join('; ');
   const c = line;
@@ -39,7 +39,7 @@ function conductorWords(line: NonNullable<BoardSpec['feeder']>['line'], feeder?:
   return parts.join(', ') || 'zero impedance';
 }
 
-export function installationSection(spec: BoardSpec, result: BoardResult): ReportSection {
+export function installationSection(spec: BoardBaseSpec, result: BoardResult): ReportSection {
   const b = result.board;
   const s = spec.supply;
   const base = s.transformer
@@ -71,7 +71,7 @@ export function installationSection(spec: BoardSpec, result: BoardResult): Repor
 
 const worstBranch = (l: LoadReading) => l.branches.reduce((w, br) => (br.voltagePercent < w.voltagePercent ? br : w), l.branches[0]!);
 
-export function scheduleSection(spec: BoardSpec, result: BoardResult): ReportSection {
+export function scheduleSection(spec: BoardBaseSpec, result: BoardResult): ReportSection {
   const boardLoads = result.loads.filter((l) => l.origin === 'board');
   const rows = boardLoads.map((l, k) => {
     const entered = spec.loads[k];

@@ -3,7 +3,7 @@
  * correction and resonance (when a correction study ran), sections handed in
  * by other studies, then assumptions, standards and safety cautions.
  */
-import type { BoardSpec } from '../../board/boardSchema.js';
+import type { BoardBaseSpec } from '../../board/boardSchema.js';
 import type { BoardResult } from '../../analysis/boardResult.js';
 import type { CorrectionReport } from '../../correction/correctionResult.js';
 import type { HarmonicsReport } from '../../harmonics/harmonicsResult.js';
@@ -14,8 +14,8 @@ import { correctionSection, resonanceSection } from './correctionSection.js';
 import { BOARD_STANDARDS, CORRECTION_ASSUMPTIONS, CORRECTION_STANDARDS, MODEL_ASSUMPTIONS, THREE_PHASE_STANDARDS } from './reportWording.js';
 
 export interface BoardReportInput {
-  /** The board file as validated (`parseBoard`): names, circuit numbers, breakers, supply data. */
-  readonly spec: BoardSpec;
+  /** The board file as validated (`parseBoard`; the board’s own fields are read): names, circuit numbers, breakers, supply data. */
+  readonly spec: BoardBaseSpec;
   /** The solved board. */
   readonly result: BoardResult;
   /** A correction study of the same board, if one ran. @defaultValue none */

@@ -1,5 +1,5 @@
 import * as z from 'zod';
-import { boardSchema } from './boardSchema.js';
+import { boardSchema } from './boardFileSchema.js';
 
 /**
  * JSON Schema (draft 2020-12) of the board file, for editors to complete and

@@ -1,39 +1,46 @@
 /**
- * Validation of board files: schema first (zod), then the cross-field rules.
- * `validateBoard` returns a result; `parseBoard` throws an `InputError`.
+ * How a board file is validated, whichever study fields it carries: schema
+ * first (zod), then the cross-field rules. The whole file's schema and rules
+ * are composed in boardFile/ and handed in here.
  */
-import { InputError, inputIssue, type InputIssue } from '../errors.js';
+import type * as z from 'zod';
+import { inputIssue, type InputIssue } from '../errors.js';
 import { allInputIssues } from '../_internal/zodIssues.js';
-import { boardSchema, feederSchema, loadSchema, supplySchema, type BoardSpec, type LoadSpec } from './boardSchema.js';
-import { BOARD_RULES, partialBoardIssues, type BoardParts } from './boardRules.js';
-import { readBoardText } from './readBoardText.js';
+import { feederSchema, supplySchema, type BoardBaseSpec, type LoadBaseSpec } from './boardSchema.js';
+import { partialBoardIssues, type BoardRule } from './boardRules.js';
 
-export { readBoardText };
+/** What a board file is checked against: its schema, one load's schema and the rules, in order. */
+export interface BoardFileChecks<T extends BoardBaseSpec> {
+  readonly schema: z.ZodType<T>;
+  /** One load as the file writes it: loads that pass it on their own still get the load rules when the file fails elsewhere. */
+  readonly load: z.ZodType<LoadBaseSpec>;
+  readonly rules: readonly BoardRule<T>[];
+}
 
-export type BoardValidation = { ok: true; board: BoardSpec } | { ok: false; issues: InputIssue[] };
+export type BoardValidationOf<T> = { ok: true; board: T } | { ok: false; issues: InputIssue[] };
 
 /**
- * Checks an already-parsed board object (from JSON, YAML or code).
+ * Checks an already-parsed board object (from JSON, YAML or code) against `checks`.
  * @returns `{ ok: true, board }` or `{ ok: false, issues }` with every problem found.
  */
-export function validateBoard(input: unknown): BoardValidation {
+export function validateBoardWith<T extends BoardBaseSpec>(checks: BoardFileChecks<T>, input: unknown): BoardValidationOf<T> {
   // An installation file handed to a one-board function: say so, not "unknown key boards".
   if (input !== null && typeof input === 'object' && 'boards' in input && !('loads' in input))
     return {
       ok: false,
       issues: [inputIssue('installation', 'boards', 'a single board (supply, feeder, loads); this is an installation file (boards:), which `trivar solve` and solveInstallation read', 'an installation')],
     };
-  const parsed = boardSchema.safeParse(input);
+  const parsed = checks.schema.safeParse(input);
   const shapeIssues = allInputIssues(parsed.success ? [] : parsed.error.issues, input);
   if (parsed.success && shapeIssues.length === 0) {
-    const issues = BOARD_RULES.flatMap((rule) => rule(parsed.data));
+    const issues = checks.rules.flatMap((rule) => rule(parsed.data));
     return issues.length ? { ok: false, issues } : { ok: true, board: parsed.data };
   }
-  return { ok: false, issues: [...shapeIssues, ...partialBoardIssues(boardParts(input))] };
+  return { ok: false, issues: [...shapeIssues, ...partialBoardIssues(boardParts(input, checks.load))] };
 }
 
 /** Each part of a board that passes the schema on its own (for the rules that can still run). */
-function boardParts(input: unknown): BoardParts {
+function boardParts(input: unknown, loadSchema: z.ZodType<LoadBaseSpec>) {
   const raw = (input !== null && typeof input === 'object' ? input : {}) as Record<string, unknown>;
   const supply = supplySchema.safeParse(raw.supply);
   const feeder = raw.feeder === undefined ? undefined : feederSchema.safeParse(raw.feeder);
@@ -42,24 +49,9 @@ function boardParts(input: unknown): BoardParts {
     supply: supply.success ? supply.data : null,
     feeder: feeder === undefined ? undefined : feeder.success ? feeder.data : null,
     // A sparse list: loads that failed the schema leave holes, so the rules keep the file's indices.
-    loads: loads.reduce<(LoadSpec | undefined)[]>((list, r, i) => {
+    loads: loads.reduce<(LoadBaseSpec | undefined)[]>((list, r, i) => {
       if (r.success) list[i] = r.data;
       return list;
     }, []),
   };
-}
-
-/**
- * Validates a board object and returns it typed.
- * @throws {InputError} listing every problem, each with its field path.
- */
-export function parseBoard(input: unknown): BoardSpec {
-  const result = validateBoard(input);
-  if (!result.ok) throw new InputError(result.issues);
-  return result.board;
-}
-
-/** `readBoardText` then `parseBoard`. @throws {InputError} */
-export function parseBoardText(text: string): BoardSpec {
-  return parseBoard(readBoardText(text));
 }

@@ -1,0 +1,115 @@
+/**
+ * `trivar correct` on an installation: where the equipment goes, the study on that board, then what the
+ * equipment does to every board, feeder and the supply (fits 100 columns).
+ */
+import type { BeforeAfter, InstallationComparison, InstallationCorrection, InstallationEffect } from '@trivar/core';
+import { fixed, renderTableWithin, section } from './textTable.js';
+import { renderCorrectionReport } from './correctionReport.js';
+import { renderComparisonReport } from './comparisonReport.js';
+import { REPORT_WIDTH, wrapText } from './wrapText.js';
+
+const note = (text: string) => `${wrapText(text, '  (', '   ', REPORT_WIDTH - 1)})`;
+const change = (x: BeforeAfter | null, digits: number) => (x === null ? '' : `${fixed(x.before, digits)} → ${fixed(x.after, digits)}`);
+/** The same without spaces, for table cells (keeps the tables inside 100 columns). */
+const cell = (x: BeforeAfter | null, digits: number) => (x === null ? '' : `${fixed(x.before, digits)}→${fixed(x.after, digits)}`);
+const treeName = (name: string, depth: number) => `${'  '.repeat(depth - 1)}${depth > 1 ? '└ ' : ''}${name}`;
+
+function placeLines(c: InstallationCorrection | InstallationComparison): string {
+  const where = c.boardIndex === 0 ? `${c.board} (the main board)` : c.board;
+  return [
+    wrapText(`${c.installation}: correction equipment on ${where}`, '', '  '),
+    wrapText(
+      `The target is judged at the incomer of ${c.board}. Every solve below is of the whole installation (loads at their models, every feeder's impedance), so the equipment's effect on the boards above and beside it is part of it.`,
+      '',
+      '',
+    ),
+    '',
+  ].join('\n');
+}
+
+function boardTable(e: InstallationEffect): string {
+  const threePhase = e.boards.some((b) => b.negativeSequenceCurrentPercent !== null);
+  const hasNeutral = e.boards.some((b) => b.neutralCurrentA !== null);
+  const rows = e.boards.map((b) => [
+    treeName(b.name, b.depth) + (b.hasEquipment ? ' *' : ''),
+    cell(b.lowestVoltagePercent, 1),
+    cell(b.feeder.largestLineCurrentA, 1),
+    ...(hasNeutral ? [cell(b.neutralCurrentA, 1)] : []),
+    cell(b.vectorPf, 3),
+    ...(threePhase ? [cell(b.negativeSequenceCurrentPercent, 1)] : []),
+    cell(b.incomerKvar, 2),
+  ]);
+  return renderTableWithin(
+    [
+      { header: 'board', align: 'left' },
+      { header: 'lowest %nom' },
+      { header: 'largest line A' },
+      ...(hasNeutral ? [{ header: 'N A' }] : []),
+      { header: 'PF' },
+      ...(threePhase ? [{ header: 'I2/I1 %' }] : []),
+      { header: 'kvar in' },
+    ],
+    rows,
+  );
+}
+
+function feederTable(e: InstallationEffect): string {
+  const hasNeutral = e.boards.some((b) => b.feeder.neutralCurrentA !== null);
+  const rows = e.boards.map((b) => [
+    b.name,
+    b.fedFrom ?? 'supply',
+    cell(b.feeder.largestLineCurrentA, 1),
+    ...(hasNeutral ? [cell(b.feeder.neutralCurrentA, 1)] : []),
+    cell(b.feeder.voltageDropPercent, 2),
+    cell(b.feeder.lossesKW, 3),
+  ]);
+  return renderTableWithin(
+    [{ header: 'to', align: 'left' }, { header: 'from', align: 'left' }, { header: 'largest line A' }, ...(hasNeutral ? [{ header: 'N A' }] : []), { header: 'drop %' }, { header: 'loss kW' }],
+    rows,
+  );
+}
+
+function supplyLines(e: InstallationEffect): string {
+  const s = e.supply;
+  const row = (label: string, text: string) => `  ${label.padEnd(25)} ${text}`;
+  return [
+    row('from the source', `${change(s.kW, 2)} kW, ${change(s.kvar, 2)} kvar, ${change(s.kVA, 2)} kVA`),
+    row('PF at the source', change(s.pf, 3)),
+    row('losses (source + feeders)', `${change(s.lossesKW, 3)} kW`),
+    row('lowest phase voltage', `${change(s.lowestVoltagePercent, 1)} % of nominal`),
+    ...(s.transformerLoadingPercent ? [row('transformer', `${change(s.transformerLoadingPercent, 0)} % of rated current`)] : []),
+  ].join('\n');
+}
+
+/** The effect section alone (every board, every feeder, the supply). */
+export function renderInstallationEffect(e: InstallationEffect): string {
+  const outside = e.boards.filter((b) => b.loadsOutsideVoltageBand.before > 0 || b.loadsOutsideVoltageBand.after > 0);
+  const band = outside.length
+    ? `\n${outside.map((b) => wrapText(`${b.name}: ${b.loadsOutsideVoltageBand.before} → ${b.loadsOutsideVoltageBand.after} load(s) outside the voltage band`, '  ! ', '    ')).join('\n')}`
+    : `\n  every load stays inside the voltage band before and after`;
+  return (
+    section('Every board, before → after (the whole installation re-solved with the equipment)') +
+    boardTable(e) +
+    `\n${note("* the board the equipment is on. At each board's incomer (everything its feeder carries): lowest phase voltage, largest line current, neutral current, vector PF |ΣP|/|ΣS|, |I2|/|I1|, reactive power in (+ lagging). Per line: --json.")}` +
+    band +
+    '\n' +
+    section('Feeders, before → after') +
+    feederTable(e) +
+    `\n${note('drop: |V| at the sending end minus |V| at the board, worst phase, % of nominal; for the service feeder, from the source EMF.')}` +
+    '\n' +
+    section('Supply, before → after') +
+    supplyLines(e) +
+    '\n'
+  );
+}
+
+export function renderInstallationCorrection(c: InstallationCorrection): string {
+  return `${placeLines(c)}\n${renderCorrectionReport(c.report)}${renderInstallationEffect(c.effect)}`;
+}
+
+export function renderInstallationComparison(c: InstallationComparison): string {
+  const effect = c.effect
+    ? `\nThe recommended ${c.comparison.recommended?.replace('-', ' ') ?? ''} across the installation\n${renderInstallationEffect(c.effect)}`
+    : '';
+  return `${placeLines(c)}\n${renderComparisonReport(c.comparison)}${effect}`;
+}

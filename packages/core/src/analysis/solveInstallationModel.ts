@@ -1,0 +1,15 @@
+import type { Installation } from '../board/boardModel.js';
+import { solveInstallationNetwork } from '../network/solveNetwork.js';
+import { analyseInstallation, type AnalyseInstallationOptions } from './analyseInstallation.js';
+import type { InstallationResult } from './installationResult.js';
+import { assertFiniteResult } from './assertFiniteResult.js';
+
+export type SolveInstallationOptions = AnalyseInstallationOptions;
+
+/**
+ * Solves a normalised installation (see `normaliseInstallation`) and analyses every board and feeder.
+ * @throws {NumericalError} for a singular network or a load iteration that does not settle.
+ */
+export function solveInstallationModel(installation: Installation, options: SolveInstallationOptions = {}): InstallationResult {
+  return assertFiniteResult(analyseInstallation(solveInstallationNetwork(installation, options), options));
+}

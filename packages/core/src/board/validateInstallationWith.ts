@@ -1,0 +1,55 @@
+/**
+ * How an installation file is validated (and a board file, which is the
+ * one-board installation): schema first, then the tree and board rules. The
+ * whole file's schemas and rules are composed in boardFile/ and handed in here.
+ */
+import type * as z from 'zod';
+import type { InputIssue } from '../errors.js';
+import { inputIssuesFromZod } from '../_internal/zodIssues.js';
+import type { BoardBaseSpec } from './boardSchema.js';
+import type { InstallationBaseSpec } from './installationSchema.js';
+import { validateBoardWith, type BoardFileChecks } from './validateBoardWith.js';
+
+/** What an installation file is checked against, and how a board file becomes one. */
+export interface InstallationFileChecks<I extends InstallationBaseSpec, B extends BoardBaseSpec> {
+  readonly schema: z.ZodType<I>;
+  readonly rules: readonly ((spec: I) => InputIssue[])[];
+  /** A board file is validated as a board, then taken as the installation with that one board. */
+  readonly board: BoardFileChecks<B>;
+  readonly boardAsInstallation: (board: B) => I;
+}
+
+export type InstallationValidationOf<I> = { ok: true; installation: I } | { ok: false; issues: InputIssue[] };
+
+/** True when a parsed file describes an installation (it has `boards`) rather than one board. */
+export const isInstallationInput = (input: unknown): boolean => typeof input === 'object' && input !== null && 'boards' in input;
+
+/** The installation a board file describes: its one board under the supply (the board's own fields only). */
+export function oneBoardInstallation<B extends BoardBaseSpec>(board: B) {
+  const { feeder, loads, name, supply, studies, note } = board;
+  return {
+    ...(name ? { name } : {}),
+    ...(note ? { note } : {}),
+    supply,
+    boards: [{ name: name ?? 'board', loads: loads as B['loads'], ...(feeder ? { feeder } : {}) }],
+    ...(studies ? { studies } : {}),
+  };
+}
+
+/**
+ * Checks an installation object against `checks`; a board object (supply,
+ * feeder, loads) is accepted too and becomes the installation with that one board.
+ */
+export function validateInstallationWith<I extends InstallationBaseSpec, B extends BoardBaseSpec>(
+  checks: InstallationFileChecks<I, B>,
+  input: unknown,
+): InstallationValidationOf<I> {
+  if (!isInstallationInput(input)) {
+    const board = validateBoardWith(checks.board, input);
+    return board.ok ? { ok: true, installation: checks.boardAsInstallation(board.board) } : board;
+  }
+  const parsed = checks.schema.safeParse(input);
+  if (!parsed.success) return { ok: false, issues: inputIssuesFromZod(parsed.error.issues, input) };
+  const issues = checks.rules.flatMap((rule) => rule(parsed.data));
+  return issues.length ? { ok: false, issues } : { ok: true, installation: parsed.data };
+}

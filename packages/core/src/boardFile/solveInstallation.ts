@@ -1,0 +1,24 @@
+import { normaliseInstallation } from '../board/normaliseInstallation.js';
+import { solveInstallationModel, type SolveInstallationOptions } from '../analysis/solveInstallationModel.js';
+import type { InstallationResult } from '../analysis/installationResult.js';
+import { parseInstallation } from './validateInstallation.js';
+
+/**
+ * Validates, normalises and solves an installation file given as a plain object
+ * (a board file is accepted too: the installation with one board).
+ * @throws {InputError} listing every problem, each with its path.
+ * @throws {NumericalError} for a singular network or a load iteration that does not settle.
+ * @example
+ * const result = solveInstallation({
+ *   supply: { system: 'three-phase-4wire', voltage: { lineToLine: 400 }, frequencyHz: 50 },
+ *   boards: [
+ *     { name: 'Main', loads: [] },
+ *     { name: 'Shed', fedFrom: 'Main', feeder: { lengthM: 40, line: { mm2: 16 }, neutral: { mm2: 16 } },
+ *       loads: [{ name: 'heater', connection: 'A-N', kW: 3 }] },
+ *   ],
+ * });
+ * result.feeders[1].lines[0].current.magnitude //=> about 13.4 (A)
+ */
+export function solveInstallation(input: unknown, options: SolveInstallationOptions = {}): InstallationResult {
+  return solveInstallationModel(normaliseInstallation(parseInstallation(input)).installation, options);
+}

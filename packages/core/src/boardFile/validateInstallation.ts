@@ -1,0 +1,35 @@
+/**
+ * Validation of installation files (and of board files, which are one-board
+ * installations): the whole file's schema, then the tree, board and study rules.
+ */
+import { InputError } from '../errors.js';
+import { BOARD_RULES } from '../board/boardRules.js';
+import { installationRulesWith } from '../board/installationRules.js';
+import { isInstallationInput, oneBoardInstallation, validateInstallationWith, type InstallationFileChecks, type InstallationValidationOf } from '../board/validateInstallationWith.js';
+import { installationSchema, type BoardSpec, type InstallationSpec } from './boardFileSchema.js';
+import { BOARD_FILE_CHECKS, STUDY_BOARD_RULES } from './validateBoard.js';
+
+const INSTALLATION_FILE_CHECKS: InstallationFileChecks<InstallationSpec, BoardSpec> = {
+  schema: installationSchema,
+  rules: installationRulesWith<InstallationSpec>([...BOARD_RULES, ...STUDY_BOARD_RULES]),
+  board: BOARD_FILE_CHECKS,
+  // The board's correction study carries over; the other sections are one-board studies.
+  boardAsInstallation: (board) => ({ ...oneBoardInstallation(board), ...(board.correction ? { correction: board.correction } : {}) }),
+};
+
+export type InstallationValidation = InstallationValidationOf<InstallationSpec>;
+
+/**
+ * Checks an installation object; a board object (supply, feeder, loads) is
+ * accepted too and becomes the installation with that one board.
+ */
+export function validateInstallation(input: unknown): InstallationValidation {
+  return validateInstallationWith(INSTALLATION_FILE_CHECKS, input);
+}
+
+/** @throws {InputError} listing every problem, each with its field path. */
+export function parseInstallation(input: unknown): InstallationSpec {
+  const result = validateInstallation(input);
+  if (!result.ok) throw new InputError(result.issues, isInstallationInput(input) ? 'the installation is not valid' : 'the board is not valid');
+  return result.installation;
+}

@@ -1,0 +1,175 @@
+/**
+ * What correction equipment on one board of an installation does to every
+ * board: the whole installation is solved without and with the equipment
+ * (the same solver, loads at their models, every feeder's impedance), and each
+ * board's incomer, feeder and the supply are read before and after.
+ */
+import type { Board, PhaseId } from '../board/boardModel.js';
+import type { BoardResult, PowerFactorSense } from '../analysis/boardResult.js';
+import type { InstallationResult } from '../analysis/installationResult.js';
+import { analyseInstallation } from '../analysis/analyseInstallation.js';
+import { solveInstallationNetwork, type SolveOptions } from '../network/solveNetwork.js';
+import { installationOf } from '../network/installationModel.js';
+import { addCorrectionEquipment, type EquipmentGroup } from './equipment.js';
+import type { BeforeAfter, PfBeforeAfter } from './correctionResult.js';
+import { beforeAfter, pfBeforeAfter } from './_internal/branchReadings.js';
+
+/** One line at a board's incomer, before and after. */
+export interface IncomerLineEffect {
+  readonly phase: PhaseId;
+  /** Phase voltage at the board (to its neutral bar; virtual neutral on a 3-wire board), V and % of nominal. */
+  readonly voltageV: BeforeAfter;
+  readonly voltagePercent: BeforeAfter;
+  /** Current in the incomer (this board and every board beyond it), A. */
+  readonly currentA: BeforeAfter;
+  /** Displacement PF of the line at the incomer; null where the line carries no current. */
+  readonly pf: PfBeforeAfter;
+  readonly sense: { readonly before: PowerFactorSense; readonly after: PowerFactorSense };
+}
+
+/** One board's incomer and feeder, before and after. */
+export interface BoardEffect {
+  readonly name: string;
+  readonly fedFrom: string | null;
+  /** Boards between this one and the supply, counting itself (main board: 1). */
+  readonly depth: number;
+  /** True for the board the equipment is on. */
+  readonly hasEquipment: boolean;
+  readonly lines: readonly IncomerLineEffect[];
+  readonly lowestVoltagePercent: BeforeAfter;
+  readonly highestVoltagePercent: BeforeAfter;
+  /** Load branches outside the board's voltage band (its over- and undervoltage warnings). */
+  readonly loadsOutsideVoltageBand: BeforeAfter;
+  readonly neutralCurrentA: BeforeAfter | null;
+  /** Vector PF |ΣP|/|ΣS| of the lines at the incomer (everything the feeder carries). */
+  readonly vectorPf: BeforeAfter;
+  /** Positive-sequence PF (IEEE 1459) at the incomer; null on a board with fewer than three phases. */
+  readonly positiveSequencePf: BeforeAfter | null;
+  /** |I2|/|I1| of the incomer currents, %; null below three phases. */
+  readonly negativeSequenceCurrentPercent: BeforeAfter | null;
+  /** Active and reactive power through the incomer (load convention, + lagging), kW / kvar. */
+  readonly incomerKW: BeforeAfter;
+  readonly incomerKvar: BeforeAfter;
+  /** The board's feeder (the service feeder for the main board). */
+  readonly feeder: {
+    readonly largestLineCurrentA: BeforeAfter;
+    readonly lineCurrentsA: readonly BeforeAfter[];
+    readonly neutralCurrentA: BeforeAfter | null;
+    readonly lossesKW: BeforeAfter;
+    readonly voltageDropPercent: BeforeAfter;
+  };
+}
+
+/** The supply: what the source delivers, before and after. */
+export interface SupplyEffect {
+  readonly kW: BeforeAfter;
+  readonly kvar: BeforeAfter;
+  readonly kVA: BeforeAfter;
+  /** kW/kVA of what the source delivers (vector sum). */
+  readonly pf: BeforeAfter;
+  /** Source windings and every feeder, kW. */
+  readonly lossesKW: BeforeAfter;
+  readonly lowestVoltagePercent: BeforeAfter;
+  /** Transformer loading, % of rated current; null without a transformer. */
+  readonly transformerLoadingPercent: BeforeAfter | null;
+}
+
+export interface InstallationEffect {
+  /** The board the equipment is on. */
+  readonly board: string;
+  /** Boards in feeding order, main board first. */
+  readonly boards: readonly BoardEffect[];
+  readonly supply: SupplyEffect;
+  /** The two installation solves the figures come from. */
+  readonly before: InstallationResult;
+  readonly after: InstallationResult;
+}
+
+const VOLTAGE_BAND_CODES = new Set(['overvoltage', 'undervoltage']);
+const outsideBand = (r: BoardResult) => r.warnings.filter((w) => VOLTAGE_BAND_CODES.has(w.code)).length;
+const pair = (b: number | null | undefined, a: number | null | undefined): BeforeAfter | null =>
+  b === null || b === undefined || a === null || a === undefined ? null : beforeAfter(b, a);
+
+function boardEffect(before: InstallationResult, after: InstallationResult, index: number, equipmentBoard: string): BoardEffect {
+  const b = before.boards[index]!;
+  const a = after.boards[index]!;
+  const rb = b.result;
+  const ra = a.result;
+  const fb = before.feeders[index]!;
+  const fa = after.feeders[index]!;
+  const percents = (r: BoardResult) => r.phases.map((p) => p.voltagePercent);
+  return {
+    name: b.name,
+    fedFrom: b.fedFrom,
+    depth: b.depth,
+    hasEquipment: b.name === equipmentBoard,
+    lines: rb.phases.map((p, k) => {
+      const q = ra.phases[k]!;
+      return {
+        phase: p.phase,
+        voltageV: beforeAfter(p.voltage.magnitude, q.voltage.magnitude),
+        voltagePercent: beforeAfter(p.voltagePercent, q.voltagePercent),
+        currentA: beforeAfter(p.current.magnitude, q.current.magnitude),
+        pf: pfBeforeAfter(p.pf, q.pf),
+        sense: { before: p.sense, after: q.sense },
+      };
+    }),
+    lowestVoltagePercent: beforeAfter(Math.min(...percents(rb)), Math.min(...percents(ra))),
+    highestVoltagePercent: beforeAfter(Math.max(...percents(rb)), Math.max(...percents(ra))),
+    loadsOutsideVoltageBand: beforeAfter(outsideBand(rb), outsideBand(ra)),
+    neutralCurrentA: pair(rb.neutral?.current.magnitude, ra.neutral?.current.magnitude),
+    vectorPf: beforeAfter(rb.powerFactor.vector.pf, ra.powerFactor.vector.pf),
+    positiveSequencePf: pair(rb.powerFactor.positiveSequence?.pf, ra.powerFactor.positiveSequence?.pf),
+    negativeSequenceCurrentPercent: pair(rb.unbalance?.currentNegativePercent, ra.unbalance?.currentNegativePercent),
+    incomerKW: beforeAfter(sumOf(rb, 'kW'), sumOf(ra, 'kW')),
+    incomerKvar: beforeAfter(sumOf(rb, 'kvar'), sumOf(ra, 'kvar')),
+    feeder: {
+      largestLineCurrentA: beforeAfter(Math.max(...fb.lines.map((l) => l.current.magnitude)), Math.max(...fa.lines.map((l) => l.current.magnitude))),
+      lineCurrentsA: fb.lines.map((l, k) => beforeAfter(l.current.magnitude, fa.lines[k]!.current.magnitude)),
+      neutralCurrentA: pair(fb.neutral?.current.magnitude, fa.neutral?.current.magnitude),
+      lossesKW: beforeAfter(fb.lossesKW, fa.lossesKW),
+      voltageDropPercent: beforeAfter(fb.voltageDropPercent, fa.voltageDropPercent),
+    },
+  };
+}
+
+const sumOf = (r: BoardResult, key: 'kW' | 'kvar') => r.phases.reduce((s, p) => s + p[key], 0);
+
+function supplyEffect(before: InstallationResult, after: InstallationResult): SupplyEffect {
+  const kva = (r: InstallationResult) => Math.hypot(r.totals.sourceKW, r.totals.sourceKvar);
+  const pf = (r: InstallationResult) => (kva(r) > 0 ? Math.abs(r.totals.sourceKW) / kva(r) : 1);
+  const tb = before.boards[0]!.result.transformer;
+  const ta = after.boards[0]!.result.transformer;
+  return {
+    kW: beforeAfter(before.totals.sourceKW, after.totals.sourceKW),
+    kvar: beforeAfter(before.totals.sourceKvar, after.totals.sourceKvar),
+    kVA: beforeAfter(kva(before), kva(after)),
+    pf: beforeAfter(pf(before), pf(after)),
+    lossesKW: beforeAfter(before.totals.lossesKW, after.totals.lossesKW),
+    lowestVoltagePercent: beforeAfter(before.totals.lowestVoltagePercent, after.totals.lowestVoltagePercent),
+    transformerLoadingPercent: tb && ta ? beforeAfter(tb.loadingPercent, ta.loadingPercent) : null,
+  };
+}
+
+/**
+ * Solves the installation `board` belongs to without and with `equipment` on `board`, and reads every board.
+ * @param board a board with its place in an installation (`boardOfInstallation`); a lone board is the
+ *   installation of one board
+ * @param equipment e.g. `report.verification.equipment`
+ * @throws {NumericalError} if a solve fails
+ * @example
+ * const effect = installationEffect(boardOfInstallation(installation, 3), report.verification.equipment);
+ * effect.boards[0].vectorPf //=> { before: 0.93…, after: 0.96…, change: 0.03… } at the main incomer
+ */
+export function installationEffect(board: Board, equipment: readonly EquipmentGroup[], solve: SolveOptions = {}): InstallationEffect {
+  const analyse = (b: Board) => analyseInstallation(solveInstallationNetwork(installationOf(b).installation, solve), { ...solve, openNeutral: false });
+  const before = analyse(board);
+  const after = analyse(addCorrectionEquipment(board, equipment));
+  return {
+    board: board.name,
+    boards: before.boards.map((_, i) => boardEffect(before, after, i, board.name)),
+    supply: supplyEffect(before, after),
+    before,
+    after,
+  };
+}

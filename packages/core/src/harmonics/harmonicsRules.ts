@@ -1,0 +1,28 @@
+/** Cross-field rules of the harmonic fields of a board file, run with the board's own rules (boardFile/). */
+import { inputIssue, type InputIssue } from '../errors.js';
+import type { BoardBaseSpec } from '../board/boardSchema.js';
+import { systemHasNeutral } from '../board/systemTopology.js';
+import type { HarmonicLoadSpec } from './harmonicsSpec.js';
+
+/** What the rule reads: the supply and the loads with their harmonic fields. */
+type BoardWithHarmonicLoads = Pick<BoardBaseSpec, 'supply'> & { readonly loads: readonly HarmonicLoadSpec[] };
+
+/**
+ * Harmonic fields of a load: a spectrum makes it a current source at harmonic
+ * orders, so a linear form does not apply; a floating star of fixed impedance
+ * keeps its own star point, which current sources alone would leave undefined.
+ */
+export function ruleHarmonicFields(board: BoardWithHarmonicLoads): InputIssue[] {
+  const issues: InputIssue[] = [];
+  board.loads.forEach((load, i) => {
+    const path = `loads[${i}]`;
+    if (load.spectrum === undefined || load.spectrum === 'linear') return;
+    if (load.linearForm !== undefined)
+      issues.push(inputIssue('conflict', `${path}.linearForm`, 'linearForm only on loads without a spectrum (a non-linear load is a current source at harmonic orders)', load.linearForm));
+    const floating = load.connection === 'ABC-star' && (load.starPoint === 'floating' || !systemHasNeutral(board.supply.system));
+    const fixedImpedance = load.ohms !== undefined || load.model === 'constant-impedance' || load.zip?.z === 1;
+    if (floating && fixedImpedance)
+      issues.push(inputIssue('not_applicable', `${path}.spectrum`, 'a spectrum on ABC-delta loads or stars tied to the neutral (describe a floating-star non-linear load as ABC-delta)', 'a floating star'));
+  });
+  return issues;
+}

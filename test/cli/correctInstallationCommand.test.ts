@@ -1,0 +1,62 @@
+/** `trivar correct` on installation files (built binary): --board, the effect on every board, errors. */
+import { readdirSync, readFileSync } from 'node:fs';
+import { describe, expect, it } from 'vitest';
+import { correctInstallation, normaliseInstallation, parseInstallation, readBoardText } from '@trivar/core';
+import { ROOT, runTrivar } from './runTrivar.js';
+import { isBoardExample } from '../support/boardExamples.js';
+
+const works = 'examples/tannery-lane-works.yaml';
+const installations = readdirSync(`${ROOT}examples`).filter((f) => f.endsWith('.yaml') && !isBoardExample(`${ROOT}examples`)(f));
+
+describe('trivar correct on an installation file', () => {
+  it('--board puts the bank on that board; --json is the library result exactly', () => {
+    const r = runTrivar(['correct', works, '--board', 'Press shop', '--arrangement', 'star-bank', '--json']);
+    expect(r.stderr).toBe('');
+    expect(r.code).toBe(0);
+    const installation = normaliseInstallation(parseInstallation(readBoardText(readFileSync(`${ROOT}${works}`, 'utf8')))).installation;
+    const expected = correctInstallation(installation, { arrangement: 'star-bank' }, { board: 'Press shop' });
+    expect(JSON.parse(r.stdout)).toEqual(JSON.parse(JSON.stringify(expected)));
+    expect(expected.effect.boards.map((b) => b.name)).toEqual(['Main switchboard', 'Press shop', 'Offices']);
+  });
+
+  it('the text report says where the bank is, shows every board, feeder and the supply before → after', () => {
+    const r = runTrivar(['correct', works, '--board', 'Press shop', '--arrangement', 'star-bank']);
+    expect(r.code).toBe(0);
+    expect(r.stdout).toContain('Tannery Lane works: correction equipment on Press shop');
+    expect(r.stdout).toContain('The target is judged at the incomer of Press shop');
+    expect(r.stdout).toMatch(/Main switchboard\s+98\.7→99\.2\s+112\.7→94\.7\s+10\.0→9\.6\s+0\.807→0\.973/);
+    expect(r.stdout).toMatch(/└ Press shop \*/);
+    expect(r.stdout).toContain('Feeders, before → after');
+    expect(r.stdout).toMatch(/PF at the source\s+0\.802 → 0\.971/);
+    for (const line of r.stdout.split('\n')) expect(line.length, line).toBeLessThanOrEqual(100);
+  });
+
+  it.each(installations)('examples/%s: without options compares the arrangements at the main board within 100 columns', (file) => {
+    const r = runTrivar(['correct', `examples/${file}`]);
+    expect(r.stderr).toBe('');
+    expect([0, 5]).toContain(r.code);
+    expect(r.stdout).toMatch(/correction equipment on .* \(the main board\)/);
+    expect(r.stdout).toContain('Arrangements compared');
+    for (const line of r.stdout.split('\n')) expect(line.length, line).toBeLessThanOrEqual(100);
+  });
+
+  it('an unknown board: exit 3, naming --board and every board of the installation', () => {
+    const r = runTrivar(['correct', works, '--board', 'Paint shop']);
+    expect(r.code).toBe(3);
+    expect(r.stderr).toContain('--board: expected a board of this installation: "Main switchboard", "Press shop", "Offices" (received "Paint shop")');
+    expect(r.stdout).toBe('');
+  });
+
+  it('--board on a single-board file: exit 3, saying it applies to installation files', () => {
+    const r = runTrivar(['correct', 'examples/riverside-cold-store.yaml', '--board', 'Main']);
+    expect(r.code).toBe(3);
+    expect(r.stderr).toContain('--board applies to installation files');
+  });
+
+  it("a bad study in the installation file's correction section is named at its path (exit 3)", () => {
+    const text = `${readFileSync(`${ROOT}${works}`, 'utf8')}correction: { arrangement: star-bank, target: { pf: 1.5 } }\n`;
+    const r = runTrivar(['correct', '-', '--board', 'Offices'], text);
+    expect(r.code).toBe(3);
+    expect(r.stderr).toContain('correction.target.pf');
+  });
+});
