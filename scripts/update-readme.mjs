@@ -13,6 +13,7 @@ const blocks = [
   ['correct-detuned-output', ['correct', 'examples/quayside-print-works.yaml']],
   ['check-output', ['check', 'examples/riverside-cold-store.yaml', 'examples/hand-figures/riverside-cold-store.yaml']],
   ['rebalance-output', ['rebalance', 'examples/larkspur-court-flats.yaml']],
+  ['rebalance-installation-output', ['rebalance', 'examples/maple-court-riser.yaml', '--move-limit', '4']],
 ];
 let readme = readFileSync('README.md', 'utf8');
 for (const [marker, args] of blocks) {
@@ -27,8 +28,11 @@ for (const [marker, args] of blocks) {
 }
 writeFileSync('README.md', readme);
 
-// Drawings the README shows, made by the tool itself (test/examples/readmeImages.test.ts checks them).
-const images = [['docs/riverside-cold-store-correction.svg', ['diagram', 'examples/riverside-cold-store.yaml', '--with-correction']]];
+// Drawings the README shows, made by the tool itself (test/examples/readmeDrawingsAndCheck.test.ts checks them).
+const images = [
+  ['docs/riverside-cold-store-correction.svg', ['diagram', 'examples/riverside-cold-store.yaml', '--with-correction']],
+  ['docs/maple-court-riser-one-line.svg', ['diagram', 'examples/maple-court-riser.yaml', '--view', 'one-line']],
+];
 for (const [file, args] of images) {
   const run = spawnSync(process.execPath, ['packages/cli/bin/trivar.js', ...args], { encoding: 'utf8' });
   if (run.status !== 0) throw new Error(`trivar ${args.join(' ')} failed: ${run.stderr}`);

@@ -1,6 +1,6 @@
 /// <reference lib="dom" />
 /**
- * Every example's report opened in headless Chromium (Debian's `chromium`,
+ * Every example's report (boards and installations) opened in headless Chromium (Debian's `chromium`,
  * driven by playwright-core through its executable path): no console errors
  * and no network requests, every diagram has its phasors and no two labels
  * overlap as the browser lays them out, and in print layout on A4 and US
@@ -33,12 +33,16 @@ const executablePath = findChromium();
 const mustRun = process.env.CI === 'true';
 const ARTIFACTS = join(ROOT, 'test/browser/artifacts');
 const PROFILE_REPORT = 'quay-street-flats-with-profile';
+/** Every example (boards and installations, and any added later), plus one report with a profile section. */
 const examples = [
   ...readdirSync(join(ROOT, 'examples'))
-    .filter(isBoardExample(join(ROOT, 'examples')))
+    .filter((f) => f.endsWith('.yaml'))
     .map((f) => f.replace(/\.yaml$/, '')),
   PROFILE_REPORT,
 ];
+const installations = readdirSync(join(ROOT, 'examples'))
+  .filter((f) => f.endsWith('.yaml') && !isBoardExample(join(ROOT, 'examples'))(f))
+  .map((f) => f.replace(/\.yaml$/, ''));
 
 /** Text block of the print stylesheet (14 mm margins) at 96 px per inch. */
 const PAPER = [
@@ -94,18 +98,21 @@ if (!executablePath && !mustRun) {
             phase: g.getAttribute('data-phase'),
             state: g.getAttribute('data-state'),
           }));
-          const boxes = Array.from(svg.querySelectorAll('text.phasor-label')).map((t) => {
+          const boxes = Array.from(svg.querySelectorAll('text.phasor-label, text.tree-text')).map((t) => {
             const b = (t as SVGGraphicsElement).getBBox();
             return { text: t.textContent ?? '', x: b.x, y: b.y, w: b.width, h: b.height };
           });
           const rect = svg.getBoundingClientRect();
           const curves = svg.querySelectorAll('polyline.series').length;
-          return { name: fig.getAttribute('data-figure')!, view: svg.getAttribute('data-view'), phasors, curves, boxes, width: rect.width, height: rect.height };
+          const boards = svg.querySelectorAll('g.board').length;
+          const feeders = svg.querySelectorAll('g.feeder polyline').length;
+          return { name: fig.getAttribute('data-figure')!, view: svg.getAttribute('data-view'), phasors, curves, boards, feeders, boxes, width: rect.width, height: rect.height };
         }),
       );
       await page.close();
       expect(problems).toEqual([]);
       expect(figures.length).toBeGreaterThanOrEqual(1);
+      if (installations.includes(name)) expect(figures.filter((f) => f.view === 'one-line'), 'an installation report has its one-line drawing').toHaveLength(1);
       for (const f of figures) {
         expect(f.width, `${f.name} is drawn`).toBeGreaterThan(100);
         const currents = f.phasors.filter((p) => p.quantity === 'current');
@@ -115,6 +122,10 @@ if (!executablePath && !mustRun) {
           expect(currents.filter((p) => p.phase !== 'N').length, `${f.name} has a current per line`).toBe(voltages.length);
         }
         if (f.view === 'sequence') expect(f.phasors).toHaveLength(14); // per row: 1 zero + 3 positive + 3 negative
+        if (f.view === 'one-line') {
+          expect(f.boards, `${f.name} draws every board`).toBeGreaterThanOrEqual(2);
+          expect(f.feeders, `${f.name} draws a feeder to every board`).toBe(f.boards);
+        }
         if (f.view === 'impedance-scan') expect(f.curves, `${f.name} has its curves`).toBeGreaterThan(0);
         if (f.view === 'triangles') expect(f.phasors.filter((p) => p.state === 'change').length).toBe(f.phasors.length / 3);
         const overlaps: string[] = [];

@@ -64,19 +64,25 @@ describe('correct report wording', () => {
     expect(r.warnings.filter((w) => w.code === 'unbalance-worse' || w.code === 'neutral-worse')).toEqual([]);
   });
 
-  it('a compensator whose unit-built capacitors miss beside exact reactors says why, with the net kvar it lost', () => {
+  it('a compensator whose unit-built capacitors miss beside exact reactors says why, and what re-sizing the reactors did', () => {
     const { board } = boardOf('examples/hillside-workshop.yaml');
     const r = correctBoard(board, { arrangement: 'balancing-compensator' });
     expect(r.status).toBe('misses-target-with-available-units');
     const sized = r.sizing.arrangement === 'balancing-compensator' ? r.sizing.ideal.branches : [];
     const cap = sized.filter((b) => b.element === 'capacitor').reduce((s, b) => s + b.kvarAtAppliedV, 0);
-    const reactor = -sized.filter((b) => b.element === 'reactor').reduce((s, b) => s + b.kvarAtAppliedV, 0);
+    const reactor = sized.filter((b) => b.element === 'reactor').reduce((s, b) => s - b.kvarAtNominalV, 0);
     const built = r.selection!.deliveredKvar;
     expect(built).toBeLessThan(cap);
     expect(reactor).toBeGreaterThan(0);
-    const reason = r.reasons.find((x) => x.startsWith('beside reactors'));
+    const reason = r.reasons.find((x) => x.startsWith('beside the reactors'));
     expect(reason).toContain(`${built.toFixed(2)} kvar built against ${cap.toFixed(2)} kvar sized`);
-    expect(reason).toContain(`falls from ${(cap - reactor).toFixed(2)} to ${(built - reactor).toFixed(2)} kvar`);
+    // The reactors are sized again beside the capacitors as built; the reason gives both values and the total.
+    const resized = r.reactorResizing!;
+    expect(resized.used).toBe(true);
+    const after = resized.reactors.reduce((s, x) => s + x.resizedKvar, 0);
+    expect(reason).toContain(`${reactor.toFixed(2)} → ${after.toFixed(2)} kvar in all`);
+    for (const x of resized.reactors) expect(reason).toContain(`${x.branch} ${x.sizedKvar.toFixed(2)} → ${x.resizedKvar.toFixed(2)} kvar`);
+    expect(reason).toContain('it still misses the target');
   });
 
   it('the HTML report words a negative loss saving as added losses', () => {

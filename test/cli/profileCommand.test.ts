@@ -40,6 +40,36 @@ describe('trivar profile', () => {
     expect(JSON.parse(one.stdout).sequence.rowsRead).toBe(62 * 1440 - (47 + 180 + 12) + 2);
   });
 
+  it('--correction-bank runs the bank trivar correct designs: its steps, outputs, band and delays', () => {
+    const designed = JSON.parse(runTrivar(['correct', BOARD, '--json']).stdout);
+    const switched = designed.selection.steps.filter((s: { part: string; output: number | null }) => s.part !== 'fixed' && s.output !== null);
+    const r = runTrivar(['profile', BOARD, '--data', data, '--correction-bank', '--json']);
+    expect(r.code).toBe(0);
+    const bank = JSON.parse(r.stdout).bank;
+    expect(bank.source).toBe('correction-study');
+    expect(bank.steps.map((s: { step: number; kvar: number }) => [s.step, s.kvar])).toEqual(switched.map((s: { output: number; kvarAtNominalV: number }) => [s.output, s.kvarAtNominalV]));
+    const c = designed.selection.controller;
+    // The example's correction section: PF 0.97 up to 0.995 lagging.
+    expect(bank.settings).toMatchObject({ targetPf: 0.97, upperPf: 0.995, responseShare: c.settingFraction, delaySeconds: c.switchingDelayS, reconnectSeconds: c.reconnectionDelayS, coverShare: null });
+    expect(bank.after.energy.billingPf).toBeGreaterThan(JSON.parse(r.stdout).before.energy.billingPf);
+    const text = runTrivar(['profile', BOARD, '--data', data, '--correction-bank']).stdout;
+    expect(text).toMatch(/the bank the correction study designs for this board/);
+    expect(text).toMatch(/PF band 0\.97 to 0\.995 lagging/);
+  });
+
+  it('--correction-bank: clear errors beside --bank or --pf, and on a board file without a correction arrangement', () => {
+    const both = runTrivar(['profile', BOARD, '--data', data, '--bank', '--correction-bank']);
+    expect(both.code).toBe(2);
+    expect(both.stderr).toMatch(/either --bank .* or --correction-bank/);
+    expect(runTrivar(['profile', BOARD, '--data', data, '--correction-bank', '--pf', '0.9']).stderr).toMatch(/--pf sets the target of a bank sized from the profile/);
+    const bare = join(dir, 'no-correction.yaml');
+    writeFileSync(bare, readFileSync(`${ROOT}${BOARD}`, 'utf8').replace(/^correction:\n(?: .*\n)+/m, ''));
+    const none = runTrivar(['profile', bare, '--data', data, '--correction-bank']);
+    expect(none.code).toBe(2);
+    expect(none.stderr).toMatch(/--correction-bank: the board file has no correction section naming an arrangement/);
+    expect(none.stderr).not.toMatch(/at .*\.js:\d+/);
+  });
+
   it('JSON: the bank raises the billing power factor and reports its operations', () => {
     const r = runTrivar(['profile', BOARD, '--data', data, '--bank', '--json']);
     expect(r.code).toBe(0);

@@ -2,11 +2,12 @@ import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
-import { normaliseBoard, parseBoardText, rebalanceBoard, scaleBoardLoads, solveBoardModel } from '@trivar/core';
+import { normaliseBoard, parseBoardText, readBoardText, rebalanceBoard, scaleBoardLoads, solveBoardModel, solveInstallation } from '@trivar/core';
 import { ROOT, runTrivar } from './runTrivar.js';
 import { expectClose } from '../support/tolerance.js';
 
 const flats = 'examples/larkspur-court-flats.yaml';
+const riser = 'examples/maple-court-riser.yaml';
 
 describe('trivar rebalance (built binary)', () => {
   it('prints a work order, before/after per condition, the bound and the cautions', () => {
@@ -49,6 +50,35 @@ describe('trivar rebalance (built binary)', () => {
     // The moved board is already the best: a second run moves nothing.
     const again = runTrivar(['rebalance', out, '--json', '--no-table']);
     expect(JSON.parse(again.stdout).moves).toEqual([]);
+  });
+
+  it('on an installation: the work order names each board; --write saves the installation, which re-solves to the reported currents', () => {
+    const dir = mkdtempSync(join(tmpdir(), 'trivar-rebalance-'));
+    const input = join(dir, 'riser.yaml');
+    const text = readFileSync(`${ROOT}${riser}`, 'utf8');
+    writeFileSync(input, text);
+    const out = join(dir, 'riser-moved.yaml');
+    const shown = runTrivar(['rebalance', input, '--move-limit', '4', '--no-table']);
+    expect(shown.code).toBe(0);
+    expect(shown.stdout).toMatch(/board\s+no\.\s+circuit\s+now on\s+move to/);
+    expect(shown.stdout).toContain('Before and after: incomer currents (A) and unbalance (%), installation re-solved');
+    const r = runTrivar(['rebalance', input, '--move-limit', '4', '--no-table', '--json', '--write', out]);
+    expect(r.code).toBe(0);
+    expect(readFileSync(input, 'utf8')).toBe(text);
+    const report = JSON.parse(r.stdout) as ReturnType<typeof rebalanceBoard>;
+    expect(report.moves.length).toBeGreaterThan(0);
+    expect(report.moves.length).toBeLessThanOrEqual(4);
+    for (const m of report.moves) expect(shown.stdout).toMatch(new RegExp(`${m.board}\\s+${m.circuit}\\s+${m.name}\\s+${m.from}\\s+${m.to}`));
+    const written = readFileSync(out, 'utf8');
+    expect(written).toContain('# Invented example');
+    const solved = solveInstallation(readBoardText(written));
+    for (const c of report.conditions) {
+      const board = solved.boards.find((b) => b.name === c.board)!.result;
+      board.phases.forEach((p, k) => expectClose(p.current.magnitude, c.solved.after.lineA[k]!, { rel: 1e-9, abs: 1e-9 }, `${c.board} line ${p.phase}`));
+      expectClose(board.neutral!.current.magnitude, c.solved.after.neutralA!, { rel: 1e-9, abs: 1e-9 }, `${c.board} neutral`);
+    }
+    const refused = runTrivar(['rebalance', input, '--write', input]);
+    expect(refused.code).toBe(2);
   });
 
   it('refuses to write over its input', () => {

@@ -7,18 +7,88 @@ import { describe, expect, it } from 'vitest';
 import { ROOT, runTrivar } from './runTrivar.js';
 import { isBoardExample } from '../support/boardExamples.js';
 
-const exampleFiles = readdirSync(join(ROOT, 'examples')).filter(isBoardExample(join(ROOT, 'examples')));
+/** Every example file: boards and installations alike, and whatever examples are added later. */
+const allExamples = readdirSync(join(ROOT, 'examples')).filter((f) => /\.ya?ml$/.test(f));
+const isBoardFile = isBoardExample(join(ROOT, 'examples'));
 const scratch = () => mkdtempSync(join(tmpdir(), 'trivar-report-'));
 
 describe('trivar report', () => {
-  it.each(exampleFiles)('writes an HTML report for every example: %s', (file) => {
+  it('the loop below covers the installation example', () => {
+    expect(allExamples).toContain('maple-court-riser.yaml');
+    expect(allExamples.filter((f) => !isBoardFile(f)).length).toBeGreaterThanOrEqual(1);
+  });
+
+  it.each(allExamples)('writes an HTML report for every example: %s', (file) => {
     const out = join(scratch(), 'report.html');
     const r = runTrivar(['report', `examples/${file}`, '-o', out]);
     expect(r.stderr).toBe('');
     expect(r.code).toBe(0);
     const html = readFileSync(out, 'utf8');
     expect(html).toMatch(/^<!DOCTYPE html>/);
-    for (const id of ['installation', 'schedule', 'results', 'assumptions', 'standards', 'cautions']) expect(html).toContain(`<section id="${id}">`);
+    const ids = isBoardFile(file) ? ['installation', 'schedule', 'results'] : ['installation', 'feeders', 'totals'];
+    for (const id of [...ids, 'assumptions', 'standards', 'cautions']) expect(html).toContain(`<section id="${id}">`);
+    if (!isBoardFile(file)) {
+      // One section per board of the installation, each with its panel schedule and phasor diagram.
+      const solved = JSON.parse(runTrivar(['solve', `examples/${file}`, '--json']).stdout) as { boards: { name: string }[] };
+      for (const b of solved.boards) expect(html).toContain(`<h2>Board: ${b.name}</h2>`);
+      expect(html.match(/data-view="phasors"/g)).toHaveLength(solved.boards.length);
+      expect(html).toContain('data-view="one-line"');
+    }
+  });
+
+  it('--format md on an installation writes the one-line drawing and one phasor drawing per board', () => {
+    const dir = scratch();
+    const r = runTrivar(['report', 'examples/maple-court-riser.yaml', '--format', 'md', '-o', join(dir, 'riser.md')]);
+    expect(r.stderr).toBe('');
+    expect(r.code).toBe(0);
+    expect(readdirSync(dir).sort()).toEqual([
+      'riser-board-floor-1-phasors.svg',
+      'riser-board-floor-2-phasors.svg',
+      'riser-board-floor-3-phasors.svg',
+      'riser-board-floor-4-phasors.svg',
+      'riser-board-main-switchboard-phasors.svg',
+      'riser-board-plant-room-phasors.svg',
+      'riser-one-line.svg',
+      'riser.md',
+    ]);
+    const md = readFileSync(join(dir, 'riser.md'), 'utf8');
+    expect(md).toMatch(/^## Feeders$/m);
+    expect(md).toContain('](riser-one-line.svg)');
+  });
+
+  it('--hand-figures adds the hand check, with the figures trivar check gives', () => {
+    const dir = scratch();
+    const args = ['examples/riverside-cold-store.yaml', 'examples/hand-figures/riverside-cold-store.yaml'];
+    const r = runTrivar(['report', args[0]!, '--hand-figures', args[1]!, '-o', join(dir, 'r.html')]);
+    expect(r.stderr).toBe('');
+    expect(r.code).toBe(0);
+    const html = readFileSync(join(dir, 'r.html'), 'utf8');
+    const section = html.split('<section id="hand-check">')[1]!.split('</section>')[0]!;
+    const check = JSON.parse(runTrivar(['check', ...args, '--json']).stdout) as {
+      lines: { phase: string; currentA: { textbook: number; solved: number; difference: number } }[];
+      effects: { title: string }[];
+      textbook: { phase: string; requiredKvar: number }[];
+    };
+    for (const l of check.lines)
+      expect(section).toContain(`<td>${l.phase}</td><td>current A</td><td class="num">`);
+    for (const l of check.lines) expect(section).toContain(`<td class="num">${l.currentA.solved.toFixed(1)}</td>`);
+    for (const e of check.effects) expect(section).toContain(`<td>${e.title}</td>`);
+    for (const p of check.textbook) expect(section).toContain(`<td class="num">${p.requiredKvar.toFixed(2)}</td>`);
+    expect(section).toContain('data-view="triangles"');
+    // Its cautions join the report's.
+    expect(html.split('<section id="cautions">')[1]).toContain('Any bank or compensator must be designed to the local codes');
+    // Bad figures name the figures file; installations refuse the option with a reason.
+    const bad = join(dir, 'bad.yaml');
+    writeFileSync(bad, 'capacitors: [{ branch: A-Q, kvar: 5 }]\n');
+    const b = runTrivar(['report', args[0]!, '--hand-figures', bad, '-o', join(dir, 'b.html')]);
+    expect(b.code).toBe(3);
+    expect(b.stderr).toContain(`the hand figures in "${bad}"`);
+    expect(b.stderr).toContain('capacitors[0].branch');
+    const i = runTrivar(['report', 'examples/maple-court-riser.yaml', '--hand-figures', args[1]!, '-o', join(dir, 'i.html')]);
+    expect(i.code).toBe(2);
+    expect(i.stderr).toContain('single board file');
+    // The figures file is an input: never overwritten.
+    expect(runTrivar(['report', args[0]!, '--hand-figures', bad, '-o', bad]).code).toBe(2);
   });
 
   it('includes the correction study of the board file, or leaves it out with --no-correction', () => {
@@ -124,6 +194,44 @@ describe('trivar diagram', () => {
     expect(s.code).toBe(2);
     expect(s.stderr).toContain('three-phase');
     expect(runTrivar(['diagram', 'examples/corner-bakery.yaml', '--view', 'pie']).code).toBe(2);
+  });
+});
+
+describe('trivar diagram on an installation', () => {
+  it('draws the main board by default and the board --board names, as the solved installation gives them', () => {
+    const solved = JSON.parse(runTrivar(['solve', 'examples/maple-court-riser.yaml', '--json']).stdout) as { boards: { name: string; result: { phases: { current: { magnitude: number } }[] } }[] };
+    const magnitudes = (svg: string) => [...svg.matchAll(/data-quantity="current" data-phase="[ABC]" data-state="only" data-magnitude="([\d.]+)"/g)].map((m) => Number(m[1]));
+    const main = runTrivar(['diagram', 'examples/maple-court-riser.yaml']);
+    expect(main.code).toBe(0);
+    expect(main.stdout).toContain('Main switchboard · 0°');
+    expect(magnitudes(main.stdout)).toEqual(solved.boards[0]!.result.phases.map((p) => Number(p.current.magnitude.toPrecision(3))));
+    const top = runTrivar(['diagram', 'examples/maple-court-riser.yaml', '--board', 'Floor 4']);
+    expect(top.code).toBe(0);
+    expect(top.stdout).toContain('Floor 4 · 0°');
+    const floor4 = solved.boards.find((b) => b.name === 'Floor 4')!;
+    expect(magnitudes(top.stdout)).toEqual(floor4.result.phases.map((p) => Number(p.current.magnitude.toPrecision(3))));
+    const seq = runTrivar(['diagram', 'examples/maple-court-riser.yaml', '--board', 'Plant room', '--view', 'sequence']);
+    expect(seq.code).toBe(0);
+    expect(seq.stdout).toContain('data-view="sequence"');
+  });
+
+  it('--view one-line draws the installation', () => {
+    const r = runTrivar(['diagram', 'examples/maple-court-riser.yaml', '--view', 'one-line']);
+    expect(r.code).toBe(0);
+    expect(r.stdout.match(/<g class="board"/g)).toHaveLength(6);
+  });
+
+  it('says what does not fit: unknown board, one-line of a single board, --board on a board file, correction views', () => {
+    const u = runTrivar(['diagram', 'examples/maple-court-riser.yaml', '--board', 'Floor 9']);
+    expect(u.code).toBe(3);
+    expect(u.stderr).toContain('--board: expected a board of this installation: "Main switchboard", "Plant room"');
+    const o = runTrivar(['diagram', 'examples/corner-bakery.yaml', '--view', 'one-line']);
+    expect(o.code).toBe(2);
+    expect(o.stderr).toContain('installation');
+    expect(runTrivar(['diagram', 'examples/corner-bakery.yaml', '--board', 'x']).code).toBe(3);
+    const t = runTrivar(['diagram', 'examples/maple-court-riser.yaml', '--view', 'triangles']);
+    expect(t.code).toBe(2);
+    expect(t.stderr).toContain('correction study');
   });
 });
 

@@ -10,6 +10,11 @@ describe('README drawings and hand check', () => {
     expect(committed).toBe(runTrivar(['diagram', 'examples/riverside-cold-store.yaml', '--with-correction']).stdout);
     expect(readme).toContain('](docs/riverside-cold-store-correction.svg)');
   });
+  it('docs/maple-court-riser-one-line.svg is `trivar diagram examples/maple-court-riser.yaml --view one-line`', () => {
+    const committed = readFileSync(`${ROOT}docs/maple-court-riser-one-line.svg`, 'utf8');
+    expect(committed).toBe(runTrivar(['diagram', 'examples/maple-court-riser.yaml', '--view', 'one-line']).stdout);
+    expect(readme).toContain('](docs/maple-court-riser-one-line.svg)');
+  });
   it('check output block matches `trivar check` on the cold store and its hand figures', () => {
     const block = readme.split('<!-- check-output:start -->')[1]!.split('<!-- check-output:end -->')[0]!;
     const shown = block.replace(/^\s*```text\n/, '').replace(/```\s*$/, '');

@@ -16,6 +16,13 @@ describe('README: rebalancing', () => {
     expect(shown.trimEnd()).toBe(runTrivar(['rebalance', 'examples/larkspur-court-flats.yaml']).stdout.trimEnd());
   });
 
+  it('output block matches `trivar rebalance examples/maple-court-riser.yaml --move-limit 4` (an installation work order)', () => {
+    const block = readme.split('<!-- rebalance-installation-output:start -->')[1]!.split('<!-- rebalance-installation-output:end -->')[0]!;
+    const shown = block.replace(/^\s*```text\n/, '').replace(/```\s*$/, '');
+    expect(shown).toMatch(/board\s+no\.\s+circuit\s+now on\s+move to/);
+    expect(shown.trimEnd()).toBe(runTrivar(['rebalance', 'examples/maple-court-riser.yaml', '--move-limit', '4']).stdout.trimEnd());
+  });
+
   const source = readFileSync(`${ROOT}examples/rebalance-quickstart.ts`, 'utf8');
   it('shows examples/rebalance-quickstart.ts as it is', () => expect(readme).toContain(source.slice(source.indexOf('import {')).trimEnd()));
   const claims = [...source.matchAll(/^export const (\w+) = .*\/\/=> (.+)$/gm)].map((m) => [m[1]!, m[2]!] as const);

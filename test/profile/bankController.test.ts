@@ -51,3 +51,80 @@ describe('bank controller on a step profile', () => {
     }
   });
 });
+
+describe('bank controller with an upper PF limit (a band from 0.95 to 0.99 lagging)', () => {
+  // P = 30 kW throughout. Band in Q: from 30·tan(acos 0.99) = 4.275 kvar up to 30·tan(acos 0.95) = 9.861 kvar.
+  // Steps 20, 5, 5 kvar; threshold 0.67 × 5 = 3.35 kvar; delay 60 s, reconnect 120 s.
+  // Q before correction (kvar): 9 for minutes 0–4, 23.861 for 5–14, 12 for 15–19, 5 for 20–24, 30 for 25–29.
+  const qBefore = Array.from({ length: 30 }, (_, m) => (m < 5 ? 9 : m < 15 ? 23.861 : m < 20 ? 12 : m < 25 ? 5 : 30) * 1000);
+  const tanUpper = Math.tan(Math.acos(0.99));
+  const run = (upperPf: number | undefined) =>
+    simulateBank({
+      board,
+      drivers: [{ name: 'compressors', loads: [{ load: 0, coefficient: { re: 1, im: 0 } }] }],
+      columns: { count: 30, re: [new Float64Array(30).fill(P)], im: [Float64Array.from(qBefore)] },
+      utcMs: Float64Array.from(qBefore, (_, m) => t0 + m * 60_000),
+      intervalMs: 60_000,
+      steps: [20, 5, 5].map((kvar) => ({ kvar, channel: 'ABC' as const })),
+      settings: { targetPf: 0.95, responseShare: 0.67, delaySeconds: 60, reconnectSeconds: 120, ...(upperPf !== undefined ? { upperPf } : {}) },
+    });
+  const banded = run(0.99);
+
+  it('switches in the hand-worked order and never past the upper limit by its own choice', () => {
+    // Minute 5: need 14.0, room to the upper edge 19.59: the 20 kvar step (0.67·20 = 13.4 < 14, so
+    // the single-target rule would take it) does not fit the room; a 5 kvar step (first listed) in at
+    // 6:00. Minute 6: need 9.0, room 14.59: the other 5 kvar step in at 7:00. Minutes 7–14: need 4.0
+    // > 3.35 but only the 20 kvar step is free and it does not fit (room 9.59): hold.
+    // Minute 15: Q = 12 − 10 = 2 < 4.275 (past 0.99): after the delay the longer-connected 5 kvar step
+    // (in since 6:00) out at 16:00; Q = 7, in the band. Minute 20: Q = 5 − 5 = 0 < 4.275: the last
+    // 5 kvar step out at 21:00. Minute 25: need 20.14, room 25.7: the 20 kvar step in at 26:00 (Q 10).
+    const expected = [0, 0, 0, 0, 0, 0, 5, 10, 10, 10, 10, 10, 10, 10, 10, 10, 5, 5, 5, 5, 5, 0, 0, 0, 0, 0, 20, 20, 20, 20];
+    expect([...banded.connectedKvar]).toEqual(expected);
+    expect(banded.closings).toEqual([1, 1, 1]);
+    expect(banded.openings).toEqual([0, 1, 1]);
+  });
+
+  it('holds Q at or above the upper-limit edge except during the switching delay, and never leading with a step in', () => {
+    for (let m = 0; m < 30; m++) {
+      const q = banded.figures.phaseVar.reduce((s, col) => s + col[m]!, 0);
+      const pastUpper = q < P * tanUpper - 1e-6;
+      if (pastUpper && m > 0) {
+        const qPrev = banded.figures.phaseVar.reduce((s, col) => s + col[m - 1]!, 0);
+        // Only the first interval past the edge (the delay) may be so, never two in a row.
+        expect(qPrev, `minute ${m}`).toBeGreaterThanOrEqual(P * tanUpper - 1e-6);
+      }
+      if (banded.connectedKvar[m]! > 0) expect(q, `minute ${m}`).toBeGreaterThanOrEqual(-1e-6);
+    }
+  });
+
+  it('without the upper limit the same profile takes the 20 kvar step and passes 0.99', () => {
+    const single = run(undefined);
+    expect(single.connectedKvar[6]).toBe(20);
+    const q = single.figures.phaseVar.reduce((s, col) => s + col[6]!, 0);
+    expect(P / Math.hypot(P, q)).toBeGreaterThan(0.99);
+  });
+});
+
+describe('a fixed (always-on) part in the simulator', () => {
+  it('takes its kvar off every interval on a stiff supply, and the controller reads the board with it in', () => {
+    const qBefore = Array.from({ length: 10 }, (_, m) => (m < 5 ? 12 : 20) * 1000);
+    const run = simulateBank({
+      board,
+      drivers: [{ name: 'compressors', loads: [{ load: 0, coefficient: { re: 1, im: 0 } }] }],
+      columns: { count: 10, re: [new Float64Array(10).fill(P)], im: [Float64Array.from(qBefore)] },
+      utcMs: Float64Array.from(qBefore, (_, m) => t0 + m * 60_000),
+      intervalMs: 60_000,
+      steps: [{ kvar: 5, channel: 'ABC' }],
+      fixed: [{ kvar: 4, channel: 'ABC' }],
+      settings: { targetPf: 0.95, responseShare: 0.67, delaySeconds: 60, reconnectSeconds: 120, upperPf: 1 },
+    });
+    // Minutes 0–4: Q = 12 − 4 = 8 kvar < 9.861 (the 0.95 edge): no step. Without the fixed part the
+    // controller would have seen 12 (need 2.1 < 3.35, no step either); minutes 5–9: Q = 16, need 6.14
+    // > 3.35, room 16 ≥ 5: the step in at 6:00, Q = 11 (need 1.14, hold).
+    expect([...run.connectedKvar]).toEqual([0, 0, 0, 0, 0, 0, 5, 5, 5, 5]);
+    for (let m = 0; m < 10; m++) {
+      const q = run.figures.phaseVar.reduce((s, col) => s + col[m]!, 0);
+      expectClose(q, qBefore[m]! - 4000 - run.connectedKvar[m]! * 1000, { rel: 1e-12, abs: 1e-6 }, `Q at minute ${m}`);
+    }
+  });
+});

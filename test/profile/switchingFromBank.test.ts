@@ -22,8 +22,12 @@ describe('switchingFromBank', () => {
       responseShare: selection.controller!.settingFraction,
       delaySeconds: selection.controller!.switchingDelayS,
       reconnectSeconds: selection.controller!.reconnectionDelayS,
+      // The study's band: its upper PF, or unity where leading is not allowed.
+      ...(selection.controller!.targetBand.maxPf !== null ? { upperPf: selection.controller!.targetBand.maxPf } : selection.controller!.targetBand.leadingAllowed ? {} : { upperPf: 1 }),
     });
     s.steps.forEach((step) => expect(step.kvar).toBeGreaterThan(0));
+    // Every fixed kvar is either placed for the simulator or reported as not placed.
+    expect(s.fixed.reduce((a, f) => a + f.kvar, 0) + s.fixedNotSimulatedKvar).toBeCloseTo(s.fixedKvar, 9);
   });
 
   it('at steady full load, the simulated controller ends at or above the target power factor', () => {

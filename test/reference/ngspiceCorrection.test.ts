@@ -28,6 +28,8 @@ const CASES: readonly { file: string; study: Record<string, unknown> }[] = [
   { file: 'riverside-cold-store.yaml', study: { arrangement: 'balancing-compensator', target: { pf: 0.95 } } },
   { file: 'hillside-workshop.yaml', study: { arrangement: 'delta-bank', target: { pf: 0.9, definition: 'effective' } } },
   { file: 'corner-bakery.yaml', study: { arrangement: 'balancing-compensator' } },
+  // Reactors re-sized beside the capacitors as built (see refitReactors.ts).
+  { file: 'hillside-workshop.yaml', study: { arrangement: 'balancing-compensator' } },
 ];
 
 describe.skipIf(!ngspice && !mustRun)(`corrected boards agree with ngspice (${ngspice ?? 'not installed: skipped'})`, () => {

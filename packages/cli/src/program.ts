@@ -82,6 +82,9 @@ Examples:
   trivar rebalance examples/larkspur-court-flats.yaml --move-limit 3
   trivar rebalance examples/larkspur-court-flats.yaml --near-best 2 --write larkspur-moved.yaml
   trivar rebalance board.yaml --aim neutral=1,largest-line=0.5 --json
+  trivar rebalance examples/maple-court-riser.yaml --move-limit 4 --write riser-moved.yaml
+  trivar rebalance examples/maple-court-riser.yaml --boards "Floor 3" --measure-at main
+  trivar rebalance examples/maple-court-riser.yaml --aim voltage-unbalance --measure-at "Floor 4"
 
 Exit codes: as for solve`;
 
@@ -118,15 +121,20 @@ Examples:
   trivar diagram examples/corner-bakery.yaml -o bakery-phasors.svg
   trivar diagram examples/riverside-cold-store.yaml --with-correction -o cold-store.svg
   trivar diagram examples/riverside-cold-store.yaml --view triangles -o triangles.svg
-  trivar diagram examples/hillside-workshop.yaml --view sequence > sequence.svg`;
+  trivar diagram examples/hillside-workshop.yaml --view sequence > sequence.svg
+  trivar diagram examples/maple-court-riser.yaml --view one-line -o riser.svg
+  trivar diagram examples/maple-court-riser.yaml --board "Floor 4" -o floor-4.svg`;
 
 const REPORT_EXAMPLES = `
 The report includes the correction study when the board file has a "correction:" section, and the harmonic
-study when it has a "harmonics:" section or loads with a spectrum.
+study when it has a "harmonics:" section or loads with a spectrum. On an installation file it describes the
+supply, the feeders and every board, with a one-line drawing.
 
 Examples:
   trivar report examples/riverside-cold-store.yaml -o cold-store.html
-  trivar report examples/corner-bakery.yaml --format md -o bakery.md   (writes bakery-*.svg beside it)`;
+  trivar report examples/corner-bakery.yaml --format md -o bakery.md   (writes bakery-*.svg beside it)
+  trivar report examples/maple-court-riser.yaml -o riser.html         (an installation: every board and feeder)
+  trivar report examples/riverside-cold-store.yaml --hand-figures examples/hand-figures/riverside-cold-store.yaml -o store.html`;
 
 const CHECK_EXAMPLES = `
 The figures file (YAML or JSON) lists the capacitors you chose and, if you like, what you expect:
@@ -218,6 +226,7 @@ export function createProgram(io: CliIo, outcome: RunOutcome = { exitCode: EXIT.
     .addOption(new Option('--fill-gaps <how>', 'fill missing intervals (default: leave them out)').choices(['none', 'hold', 'linear']))
     .option('--unlisted-at-rating', 'keep loads that no column drives at their rating (default: off)')
     .option('--bank', 'simulate an automatic capacitor bank over the profile (profile.bank in the board file sets it up)')
+    .option('--correction-bank', "simulate instead the bank trivar correct designs for this board: its steps, fixed part and controller settings (the board file's correction section)")
     .option('--pf <value>', 'target power factor of the bank (0 < pf <= 1; default 0.95)', numberIn(0, 1, 'a power factor above 0 and at most 1'))
     .option('--summary-csv <file>', 'write the summary as CSV')
     .option('--intervals-csv <file>', 'write per-interval results as CSV')
@@ -243,13 +252,16 @@ export function createProgram(io: CliIo, outcome: RunOutcome = { exitCode: EXIT.
 
   program
     .command('rebalance')
-    .description('find which circuits to move to which phase (fewest moves, proven bound) and re-solve the board')
-    .argument('<board>', 'board file (YAML or JSON), or - for standard input')
+    .description('find which circuits to move to which phase (fewest moves, proven bound) and re-solve the board or installation')
+    .argument('<board>', 'board or installation file (YAML or JSON), or - for standard input')
     .option('--aim <figures>', 'what to make small: largest-line, neutral, current-unbalance, voltage-unbalance, each =weight (default largest-line,neutral)', parseAim)
     .addOption(new Option('--combine <how>', 'over several load conditions: the worst one or the weighted mean').choices(['worst', 'weighted']))
     .option('--move-limit <n>', 'move at most this many circuits', anyNumber)
     .option('--near-best <percent>', 'fewest moves whose score is within this % of the best', anyNumber)
     .option('--capacity <A>', 'largest current any line may carry, A', anyNumber)
+    .option('--boards <names>', 'installations: only the circuits of these boards may move (comma-separated)', (v: string) => v.split(',').map((x) => x.trim()).filter(Boolean))
+    .option('--measure-at <where>', 'installations: score each board\'s incomer ("each", default), the main incomer ("main") or one board\'s incomer and voltage (its name)')
+    .option('--scenarios', 'use the profile section\'s scenarios as the load conditions, weighted by their hours')
     .addOption(new Option('--method <how>', 'search: exact branch-and-bound, local search, or auto by board size').choices(['auto', 'exact', 'local-search']))
     .option('--no-table', 'skip the table of the best score by moves allowed')
     .option('--write <file>', 'save the board file with the moves made (never the input file)')
@@ -262,10 +274,11 @@ export function createProgram(io: CliIo, outcome: RunOutcome = { exitCode: EXIT.
 
   program
     .command('diagram')
-    .description('draw the board as SVG: phasors (voltages, line and neutral currents), sequence components, or per-line current triangles')
-    .argument('<board>', 'board file (YAML or JSON), or - for standard input')
-    .addOption(new Option('--view <name>', 'what to draw').choices([...DIAGRAM_VIEWS]).default('phasors'))
+    .description('draw the board as SVG: phasors (voltages, line and neutral currents), sequence components, or per-line current triangles; an installation also as its one-line drawing')
+    .argument('<board>', 'board or installation file (YAML or JSON), or - for standard input')
+    .addOption(new Option('--view <name>', 'what to draw (one-line: installation files)').choices([...DIAGRAM_VIEWS]).default('phasors'))
     .option('--with-correction', "overlay the board before and after the board file's correction study")
+    .option('--board <name>', 'installation files: the board to draw (default: the main board)')
     .option('-o, --output <file>', 'write the SVG to this file (default: standard output)')
     .addHelpText('after', DIAGRAM_EXAMPLES)
     .action(async (board: string, opts: DiagramCommandOptions) => {
@@ -275,14 +288,15 @@ export function createProgram(io: CliIo, outcome: RunOutcome = { exitCode: EXIT.
 
   program
     .command('report')
-    .description('write a self-contained report of the board (HTML, or Markdown with SVG figures beside it)')
-    .argument('<board>', 'board file (YAML or JSON), or - for standard input')
+    .description('write a self-contained report of the board or installation (HTML, or Markdown with SVG figures beside it)')
+    .argument('<board>', 'board or installation file (YAML or JSON), or - for standard input')
     .option('-o, --output <file>', 'report file to write (HTML may go to standard output)')
     .addOption(new Option('--format <kind>', 'report format').choices(['html', 'md']).default('html'))
     .option('--no-correction', "leave out the board file's correction study")
     .option('--no-harmonics', "leave out the harmonic study (run when the board file has a harmonics: section or load spectra)")
     .option('--profile-data <file.csv>', 'add a load-over-time section from interval data (columns as for trivar profile --data)')
     .option('--time-zone <zone>', 'IANA time zone of the interval data (default UTC)')
+    .option('--hand-figures <file>', 'board files: add a check of your hand calculation (the figures file trivar check reads)')
     .addHelpText('after', REPORT_EXAMPLES)
     .action(async (board: string, opts: ReportCommandOptions) => {
       const { runReport } = await import('./commands/report.js');

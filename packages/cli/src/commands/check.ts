@@ -13,7 +13,7 @@ export interface CheckCommandOptions {
 }
 
 /** The figures file, with read errors naming it as such (the reader's wording speaks of board files). */
-async function readFigures(path: string, io: CliIo): Promise<string> {
+export async function readFigures(path: string, io: CliIo): Promise<string> {
   try {
     return await io.readSource(path);
   } catch (error) {

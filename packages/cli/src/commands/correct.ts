@@ -53,7 +53,7 @@ export function outcomeMeetsTarget(outcome: CorrectOutcome): boolean {
 }
 
 /** The study's input errors restated at their place in the file (`correction.target.pf`). */
-function inFileSection(error: unknown): unknown {
+export function inFileSection(error: unknown): unknown {
   if (!(error instanceof InputError)) return error;
   return new InputError(
     error.issues.map((i) => {

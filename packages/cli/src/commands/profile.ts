@@ -4,6 +4,9 @@ import { availableParallelism } from 'node:os';
 import { join } from 'node:path';
 import {
   checkIntervalSequence,
+  correctBoard,
+  switchingFromBank,
+  type SwitchingFromBank,
   driverColumns,
   isKnownTimeZone,
   normaliseBoard,
@@ -18,6 +21,7 @@ import {
 } from '@trivar/core';
 import type { CliIo } from '../io.js';
 import { UsageError } from '../exitCodes.js';
+import { inFileSection } from './correct.js';
 import { assertNotInput, writeOutputFile } from '../outputFiles.js';
 import { writeResult } from '../writeResult.js';
 import { readCsvHeader, readIntervalRows } from '../read/intervalCsv.js';
@@ -32,6 +36,7 @@ export interface ProfileCommandOptions {
   readonly fillGaps?: GapFill;
   readonly unlistedAtRating?: boolean;
   readonly bank?: boolean;
+  readonly correctionBank?: boolean;
   readonly pf?: number;
   readonly json?: boolean;
   readonly summaryCsv?: string;
@@ -44,8 +49,33 @@ export interface ProfileCommandOptions {
  * Reads the interval data and runs the profile study on a parsed board (no files written);
  * `trivar profile` and `trivar report --profile-data` share it.
  */
+/**
+ * The bank the correction study designs for this board (what `trivar correct` prints for the
+ * board file's correction section), as simulator steps and controller settings.
+ */
+export function designedBankOf(spec: ReturnType<typeof parseBoard>, board: ReturnType<typeof normaliseBoard>): SwitchingFromBank {
+  const study = spec.correction;
+  if (!study?.arrangement)
+    throw new UsageError(
+      '--correction-bank: the board file has no correction section naming an arrangement, so the correction study designs no single bank (add correction: { arrangement: ... }; trivar correct compares arrangements)',
+    );
+  let selection;
+  try {
+    selection = correctBoard(board, study).selection;
+  } catch (error) {
+    throw inFileSection(error);
+  }
+  if (!selection?.steps.length || !selection.controller)
+    throw new UsageError('--correction-bank: the correction study builds no switched bank for this board (run trivar correct to see why)');
+  return switchingFromBank(selection.steps, selection.controller);
+}
+
 export async function computeProfileStudy(spec: ReturnType<typeof parseBoard>, data: string, options: ProfileCommandOptions, io: CliIo): Promise<ProfileStudy> {
   const board = normaliseBoard(spec);
+  if (options.correctionBank && options.bank) throw new UsageError('give either --bank (a bank sized from the profile) or --correction-bank (the correction study\'s bank), not both');
+  if (options.correctionBank && options.pf !== undefined)
+    throw new UsageError('--pf sets the target of a bank sized from the profile; the correction study\'s bank keeps the target of the board file\'s correction section');
+  const designedBank = options.correctionBank ? designedBankOf(spec, board) : undefined;
   const zone = options.timeZone ?? 'UTC';
   if (!isKnownTimeZone(zone)) throw new UsageError(`--time-zone: "${zone}" is not a time zone this system knows (expected an IANA name such as Europe/Lisbon or America/Chicago)`);
   const plan = planColumns(board, readCsvHeader(data), { ...(spec.profile?.groups ? { groups: spec.profile.groups } : {}), undrivenAtRating: options.unlistedAtRating ?? false });
@@ -72,6 +102,7 @@ export async function computeProfileStudy(spec: ReturnType<typeof parseBoard>, d
       {
         timeZone: zone,
         bank: options.bank ?? false,
+        ...(designedBank ? { designedBank } : {}),
         ...(options.pf !== undefined ? { targetPf: options.pf } : {}),
         onProgress: (stage, done, total) => progress.stage(stage === 'solve' ? 'solving' : 'bank', total, done),
       },

@@ -1,7 +1,20 @@
-/** `trivar rebalance`: which circuits to move to which phase; optional rewritten board file. */
+/** `trivar rebalance`: which circuits to move to which phase, on a board or any board of an installation; optional rewritten file. */
 import { existsSync, realpathSync, statSync, writeFileSync } from 'node:fs';
 import { resolve } from 'node:path';
-import { InputError, normaliseBoard, parseBoard, readBoardText, rebalanceBoard, rewriteBoardText, type RebalanceReport } from '@trivar/core';
+import {
+  InputError,
+  isInstallationInput,
+  normaliseBoard,
+  normaliseInstallation,
+  parseBoard,
+  parseInstallation,
+  readBoardText,
+  rebalanceBoard,
+  rebalanceInstallation,
+  rewriteBoardText,
+  type RebalanceOptions,
+  type RebalanceReport,
+} from '@trivar/core';
 import type { CliIo } from '../io.js';
 import { UsageError } from '../exitCodes.js';
 import { renderRebalanceReport } from '../format/rebalanceReport.js';
@@ -13,6 +26,9 @@ export interface RebalanceCommandOptions {
   readonly moveLimit?: number;
   readonly nearBest?: number;
   readonly capacity?: number;
+  readonly boards?: string[];
+  readonly measureAt?: string;
+  readonly scenarios?: boolean;
   readonly method?: 'auto' | 'exact' | 'local-search';
   readonly table?: boolean;
   readonly write?: string;
@@ -26,6 +42,9 @@ function studySpec(fromFile: Record<string, unknown> | undefined, o: RebalanceCo
   if (o.moveLimit !== undefined) spec.moveLimit = o.moveLimit;
   if (o.nearBest !== undefined) spec.nearBestPercent = o.nearBest;
   if (o.capacity !== undefined) spec.lineCapacityA = o.capacity;
+  if (o.boards !== undefined) spec.boards = o.boards;
+  if (o.measureAt !== undefined) spec.measureAt = o.measureAt;
+  if (o.scenarios) spec.conditions = 'scenarios';
   return spec;
 }
 
@@ -43,19 +62,27 @@ export async function runRebalance(file: string, options: RebalanceCommandOption
   if (options.write !== undefined && file !== '-' && sameFile(options.write, file))
     throw new UsageError(`--write ${options.write}: that is the board file being read; write the rebalanced board to another file`);
   const text = await io.readSource(file);
-  const spec = parseBoard(readBoardText(text));
-  const study = studySpec(spec.rebalance as Record<string, unknown> | undefined, options);
+  const input = readBoardText(text);
+  const search: RebalanceOptions = {
+    ...(options.method ? { method: options.method } : {}),
+    ...(options.table === false ? { moveTable: false } : {}),
+  };
   let report: RebalanceReport;
   try {
-    report = rebalanceBoard(normaliseBoard(spec), study, {
-      ...(options.method ? { method: options.method } : {}),
-      ...(options.table === false ? { moveTable: false } : {}),
-    });
+    if (isInstallationInput(input)) {
+      const spec = parseInstallation(input);
+      const study = studySpec(spec.rebalance as Record<string, unknown> | undefined, options);
+      report = rebalanceInstallation(normaliseInstallation(spec).installation, study, search);
+    } else {
+      const spec = parseBoard(input);
+      const study = studySpec(spec.rebalance as Record<string, unknown> | undefined, options);
+      report = rebalanceBoard(normaliseBoard(spec), study, { ...search, profile: spec.profile });
+    }
   } catch (error) {
-    if (error instanceof InputError)
+    if (error instanceof InputError && error.heading.startsWith('the rebalancing study'))
       throw new InputError(
         error.issues.map((i) => {
-          const path = i.path ? `rebalance.${i.path}` : 'rebalance';
+          const path = i.path.startsWith('profile.') ? i.path : i.path ? `rebalance.${i.path}` : 'rebalance';
           return { ...i, path, message: `${path}: ${i.message.slice(i.message.indexOf(': ') + 2)}` };
         }),
         'the rebalancing study is not valid (board file rebalance section or command-line options)',

@@ -1,11 +1,36 @@
-/** `trivar report`: the whole study of a board as one self-contained HTML file, or Markdown with SVG files. */
+/** `trivar report`: the whole study of a board or installation as one self-contained HTML file, or Markdown with SVG files. */
 import { basename, dirname, extname, join } from 'node:path';
-import { profileSection, studyHarmonics, type BoardSpec, type ReportSection, buildBoardReport, correctBoard, normaliseBoard, parseBoard, readBoardText, renderReportHtml, renderReportMarkdown, solveBoardModel } from '@trivar/core';
+import {
+  addHandCapacitors,
+  buildBoardReport,
+  buildInstallationReport,
+  checkHandFigures,
+  correctBoard,
+  InputError,
+  isInstallationInput,
+  normaliseBoard,
+  normaliseInstallation,
+  parseBoard,
+  parseInstallation,
+  profileSection,
+  readBoardText,
+  renderCurrentTriangles,
+  renderReportHtml,
+  renderReportMarkdown,
+  solveBoardModel,
+  solveInstallationModel,
+  studyHarmonics,
+  type Board,
+  type BoardSpec,
+  type ReportDocument,
+  type ReportSection,
+} from '@trivar/core';
 import type { CliIo } from '../io.js';
 import { UsageError } from '../exitCodes.js';
 import { assertNotInput, writeOutputFile } from '../outputFiles.js';
 import { computeProfileStudy } from './profile.js';
 import { writeProfileCharts } from '../format/profileChartFiles.js';
+import { readFigures } from './check.js';
 
 export interface ReportCommandOptions {
   readonly output?: string;
@@ -17,6 +42,8 @@ export interface ReportCommandOptions {
   /** Interval data (CSV) for a load-profile section, as for `trivar profile --data`. */
   readonly profileData?: string;
   readonly timeZone?: string;
+  /** A hand calculation to check (the figures file `trivar check` reads). */
+  readonly handFigures?: string;
 }
 
 /** The profile study of the interval data, as a report section with its charts. */
@@ -32,13 +59,23 @@ async function profileReportSection(spec: BoardSpec, options: ReportCommandOptio
   return profileSection(study.result, charts);
 }
 
-export async function runReport(file: string, options: ReportCommandOptions, io: CliIo, footer: string): Promise<void> {
-  const format = options.format ?? 'html';
-  const out = options.output;
-  if (format === 'md' && !out) throw new UsageError('a Markdown report writes its figures as SVG files beside it: give the report file with -o, e.g. -o board-report.md');
-  const inputs = [file, ...(options.profileData ? [options.profileData] : [])];
-  if (out) assertNotInput([out], inputs);
-  const raw = readBoardText(await io.readSource(file));
+/** The hand check of `board` with its triangle drawing; problems in the figures are said to be in that file. */
+function handCheckOf(board: Board, figures: unknown, figuresFile: string) {
+  try {
+    const result = checkHandFigures(board, figures);
+    const solved = (b: Board) => solveBoardModel(b, { openNeutral: false });
+    const triangles = renderCurrentTriangles(solved(board), solved(addHandCapacitors(board, figures)), {
+      title: 'Line current triangles — without and with your capacitors',
+      changeName: 'your capacitors',
+    });
+    return { result, triangles };
+  } catch (error) {
+    if (error instanceof InputError) throw new InputError(error.issues, `the hand figures in "${figuresFile}" are not valid`);
+    throw error;
+  }
+}
+
+async function boardDocument(raw: unknown, figures: unknown, options: ReportCommandOptions, io: CliIo): Promise<ReportDocument> {
   const spec = parseBoard(raw);
   const board = normaliseBoard(spec);
   const result = solveBoardModel(board);
@@ -46,7 +83,29 @@ export async function runReport(file: string, options: ReportCommandOptions, io:
   const wantsHarmonics = spec.harmonics !== undefined || spec.loads.some((l) => l.spectrum !== undefined);
   const harmonics = options.harmonics !== false && wantsHarmonics ? studyHarmonics(raw) : null;
   const studySections = options.profileData ? [await profileReportSection(spec, options, io)] : [];
-  const doc = buildBoardReport({ spec, result, correction, harmonics, studySections });
+  const handCheck = figures === null ? null : handCheckOf(board, figures, options.handFigures!);
+  return buildBoardReport({ spec, result, correction, harmonics, studySections, handCheck });
+}
+
+function installationDocument(raw: unknown, figures: unknown, options: ReportCommandOptions): ReportDocument {
+  if (options.profileData) throw new UsageError("--profile-data applies to a single board file: interval data describe one board; give that board's own file");
+  // The hand method works on one board and its own loads; a board inside an installation also carries the
+  // boards beyond it and the drops before it, which the hand check's effects do not separate.
+  if (figures !== null) throw new UsageError('--hand-figures checks a hand calculation on a single board file; this is an installation (boards:) — give the board as its own file');
+  const spec = parseInstallation(raw);
+  const result = solveInstallationModel(normaliseInstallation(spec).installation);
+  return buildInstallationReport({ spec, result });
+}
+
+export async function runReport(file: string, options: ReportCommandOptions, io: CliIo, footer: string): Promise<void> {
+  const format = options.format ?? 'html';
+  const out = options.output;
+  if (format === 'md' && !out) throw new UsageError('a Markdown report writes its figures as SVG files beside it: give the report file with -o, e.g. -o board-report.md');
+  const inputs = [file, ...(options.profileData ? [options.profileData] : []), ...(options.handFigures ? [options.handFigures] : [])];
+  if (out) assertNotInput([out], inputs);
+  const raw = readBoardText(await io.readSource(file));
+  const figures = options.handFigures ? readBoardText(await readFigures(options.handFigures, io)) : null;
+  const doc = isInstallationInput(raw) ? installationDocument(raw, figures, options) : await boardDocument(raw, figures, options, io);
   if (format === 'html') {
     const html = renderReportHtml(doc, { footer });
     if (out) writeOutputFile(out, html);

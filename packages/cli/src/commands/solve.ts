@@ -1,10 +1,11 @@
 /** `trivar solve`: read a board or installation file, solve it, print the report or JSON. */
-import { InputError, isInstallationInput, readBoardText, solveBoard, solveInstallation, type BoardResult, type InstallationResult } from '@trivar/core';
+import { isInstallationInput, readBoardText, solveBoard, solveInstallation, type BoardResult, type InstallationResult } from '@trivar/core';
 import type { CliIo } from '../io.js';
 import { writeResult } from '../writeResult.js';
 import { collapseError } from '../exitCodes.js';
 import { renderSolveReport } from '../format/solveReport.js';
 import { renderInstallationReport } from '../format/installationReport.js';
+import { boardOptionOnBoardFile, unknownBoardError } from './chooseBoard.js';
 
 export interface SolveCommandOptions {
   readonly json?: boolean;
@@ -20,8 +21,7 @@ export async function runSolve(file: string, options: SolveCommandOptions, io: C
   const input = readBoardText(text);
   const solveOptions = options.openNeutral ? { openNeutral: true } : {};
   if (!isInstallationInput(input)) {
-    if (options.board?.length || options.allBoards)
-      throw new InputError([{ code: 'not_applicable', path: '', expected: 'an installation file (with boards:) for --board and --all-boards', message: '--board and --all-boards apply to installation files (with boards:), and this is a single board' }], 'the options do not fit the file');
+    if (options.board?.length || options.allBoards) throw boardOptionOnBoardFile('--board and --all-boards');
     const result = solveBoard(input, solveOptions);
     writeResult(io, result, options.json, renderSolveReport);
     if (result.operatingPoint.collapsed) throw collapseError(result);
@@ -30,11 +30,7 @@ export async function runSolve(file: string, options: SolveCommandOptions, io: C
   const result = solveInstallation(input, solveOptions);
   const names = result.boards.map((b) => b.name);
   const unknown = (options.board ?? []).filter((n) => !names.includes(n));
-  if (unknown.length)
-    throw new InputError(
-      unknown.map((n) => ({ code: 'unknown_board', path: '', expected: `a board of this installation: ${names.map((x) => JSON.stringify(x)).join(', ')}`, received: JSON.stringify(n), message: `--board: expected a board of this installation: ${names.map((x) => JSON.stringify(x)).join(', ')} (received ${JSON.stringify(n)})` })),
-      'the options do not fit the file',
-    );
+  if (unknown.length) throw unknownBoardError(unknown, names);
   const detailed = options.allBoards ? names : names.filter((n) => options.board?.includes(n));
   writeResult(io, result, options.json, (r) => renderInstallationReport(r, { detailed }));
   return result;

@@ -236,7 +236,7 @@ function balanceLine(r: CorrectionReport): string[] {
   return [`balance as built: |I2|/|I1| ${fixed(b.negativeSequencePercent, 1)} % (target ≤ ${fixed(t.maxNegativeSequencePercent, 0)} %)${neutral} — ${b.met ? 'met' : 'NOT met'}`];
 }
 
-function compensatorBlock(c: CompensatorSizing, ideal: CorrectionVerification | null): string {
+function compensatorBlock(c: CompensatorSizing, ideal: CorrectionVerification | null, resizing: CorrectionReport['reactorResizing']): string {
   const res = (label: string, s: CompensatorSizing['ideal']) =>
     `${label}: |I2|/|I1| ${fixed(s.residual.negativeSequenceCurrentPercent, 2)} %, |I0|/|I1| ${fixed(s.residual.zeroSequenceCurrentPercent, 2)} %` +
     (s.residual.neutralCurrentA === null ? '' : `, neutral ${fixed(s.residual.neutralCurrentA, 2)} A`) +
@@ -253,7 +253,9 @@ function compensatorBlock(c: CompensatorSizing, ideal: CorrectionVerification | 
     indentLines([res('capacitor-only residual', c.capacitorOnly)]),
     indentLines([
       c.recommended === 'ideal'
-        ? 'built: the ideal solution (capacitors from units, reactors as sized), because capacitors alone miss the target'
+        ? resizing?.used
+          ? `built: the ideal solution with capacitors from units and the reactors sized again beside them (${resizing.reactors.map((r) => `${r.branch} ${fixed(r.sizedKvar, 2)} → ${fixed(r.resizedKvar, 2)} kvar`).join(', ')}), because capacitors alone miss the target`
+          : 'built: the ideal solution (capacitors from units, reactors as sized), because capacitors alone miss the target'
         : 'built: the capacitor-only solution',
     ]),
   ]
@@ -277,7 +279,7 @@ export function renderCorrectionReport(r: CorrectionReport): string {
     ...r.reasons.map((x) => wrapText(x, '  - ', '    ')),
     ...balanceLine(r).map((x) => wrapText(x, '  ', '    ')),
   ];
-  if (r.sizing.arrangement === 'balancing-compensator') parts.push(section('Compensator sizing') + compensatorBlock(r.sizing, r.idealVerification));
+  if (r.sizing.arrangement === 'balancing-compensator') parts.push(section('Compensator sizing') + compensatorBlock(r.sizing, r.idealVerification, r.reactorResizing));
   else {
     const shift = r.sizing.starPointShift;
     const shiftLines = shift

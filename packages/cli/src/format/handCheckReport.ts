@@ -1,5 +1,5 @@
 /** Text report of `trivar check`: the textbook working, hand vs solved line by line, and the effects behind each difference. */
-import type { HandCheckResult, PowerFactorSense } from '@trivar/core';
+import { handCheckEffectRows, type HandCheckResult, type PowerFactorSense } from '@trivar/core';
 import { fixed, renderTable, section } from './textTable.js';
 
 const SYSTEM_WORDS: Readonly<Record<string, string>> = {
@@ -90,22 +90,7 @@ export function renderHandCheckReport(r: HandCheckResult): string {
   out.push(
     renderTable(
       [{ header: 'effect', align: 'left' }, ...phases.map((p) => ({ header: `${p} A` })), ...(hasN ? [{ header: 'N A' }] : []), ...phases.map((p) => ({ header: `${p} PF` })), { header: 'board PF' }],
-      [
-        ...r.effects.map((e) => [
-          e.title,
-          ...e.lines.map((l) => signed(l.currentA, 1)),
-          ...(hasN ? [e.neutralA === null ? '—' : signed(e.neutralA, 1)] : []),
-          ...e.lines.map((l) => signed(l.pf, 3)),
-          signed(e.boardPf, 3),
-        ]),
-        [
-          'total (solved − textbook)',
-          ...r.lines.map((l) => signed(l.currentA.difference, 1)),
-          ...(hasN ? [signed(r.neutralA!.difference, 1)] : []),
-          ...r.lines.map((l) => signed(l.pf.difference, 3)),
-          signed(r.boardPf.difference, 3),
-        ],
-      ],
+      handCheckEffectRows(r),
     ),
   );
   out.push('');

@@ -126,6 +126,9 @@ export function renderHarmonicsReport(r: HarmonicsReport): string {
   out.push(
     `  board: true PF ${r.powerFactor.true === null ? '-' : fixed(r.powerFactor.true, 3)}, displacement PF ${r.powerFactor.displacement === null ? '-' : fixed(r.powerFactor.displacement, 3)} (ΣP / Σ V·I over the lines)`,
   );
+  const v = r.voltageDistortion;
+  const overBuses = v.buses.filter((b) => !b.ok).map((b) => b.bus);
+  out.push(`  IEEE 519 voltage limits at ≤ 1 kV (${v.individualLimitPercent} % one order, ${v.thdLimitPercent} % THD): ${v.ok ? 'within on every bus voltage' : `EXCEEDED on ${overBuses.join(', ')} (see warnings)`}`);
   if (r.neutral) {
     out.push(section('Neutral conductor'));
     out.push(...neutralLines(r.neutral));

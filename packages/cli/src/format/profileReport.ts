@@ -96,14 +96,30 @@ function monthTable(s: ProfileSummary, after: ProfileSummary | null, currency: s
 function bankLines(r: ProfileResult): string {
   const b = r.bank!;
   const set = b.settings;
-  const sizing = b.sizedFromProfile
-    ? `sized from the profile to hold the target in ${fixed(set.coverShare * 100, 0)} % of intervals: ${Object.entries(b.needKvar ?? {})
-        .map(([c, v]) => `${fixed(v, 1)} kvar ${c === 'ABC' ? 'three-phase' : `on phase ${c}`}`)
-        .join(', ')} needed`
-    : 'steps as given in profile.bank.steps';
+  const sizing =
+    b.source === 'profile'
+      ? `sized from the profile to hold the target in ${fixed((set.coverShare ?? 0) * 100, 0)} % of intervals: ${Object.entries(b.needKvar ?? {})
+          .map(([c, v]) => `${fixed(v, 1)} kvar ${c === 'ABC' ? 'three-phase' : `on phase ${c}`}`)
+          .join(', ')} needed`
+      : b.source === 'correction-study'
+        ? 'the bank the correction study designs for this board (trivar correct, the board file\'s correction section)'
+        : 'steps as given in profile.bank.steps';
+  // Three decimals where a band edge needs them (0.995 must not read as 0.99).
+  const pf = (x: number) => fixed(x, Math.round(x * 100) === x * 100 ? 2 : 3);
+  const band =
+    set.upperPf === null ? `target PF ${pf(set.targetPf)}` : set.upperPf >= 1 ? `target PF ${pf(set.targetPf)} up to unity, never leading` : `PF band ${pf(set.targetPf)} to ${pf(set.upperPf)} lagging`;
   const lines = [
-    `  ${sizing}; ${b.steps.length} steps, ${fixed(b.totalKvar, 1)} kvar in all`,
-    `  controller: target PF ${fixed(set.targetPf, 2)}, switching threshold ${fixed(set.responseShare, 2)} × smallest step, delay ${set.delaySeconds} s, reconnect after ${set.reconnectSeconds} s`,
+    `  ${sizing}`,
+    `  ${b.steps.length} switched step${b.steps.length === 1 ? '' : 's'}, ${fixed(b.totalKvar, 1)} kvar in all at nominal voltage${b.fixedKvar > 0 ? `; fixed part ${fixed(b.fixedKvar, 1)} kvar, always connected` : ''}`,
+    ...(b.notSimulated
+      ? [
+          `  not simulated (no single-phase channel for a line-to-line step here): ${[
+            ...(b.notSimulated.outputs.length ? [`output${b.notSimulated.outputs.length > 1 ? 's' : ''} ${b.notSimulated.outputs.join(', ')}`] : []),
+            ...(b.notSimulated.fixedKvar > 0 ? [`${fixed(b.notSimulated.fixedKvar, 1)} kvar of the fixed part`] : []),
+          ].join('; ')}`,
+        ]
+      : []),
+    `  controller: ${band}, switching threshold ${fixed(set.responseShare, 2)} × smallest step, delay ${set.delaySeconds} s, reconnect after ${set.reconnectSeconds} s`,
     '',
     renderTable(
       [{ header: 'step' }, { header: 'where', align: 'left' }, { header: 'kvar' }, { header: 'closings' }, { header: 'per year' }],

@@ -1,6 +1,9 @@
 /** RebalanceReport → the text report of `trivar rebalance`. */
 import type { ConditionComparison, ConditionFigures, RebalanceReport } from '@trivar/core';
-import { fixed, renderTable, section } from './textTable.js';
+import { fixed, renderTable, renderTableWithin, section } from './textTable.js';
+
+const amps = (x: number | null) => (x === null ? '-' : fixed(x, 1));
+const percent = (x: number | null) => (x === null ? '-' : fixed(x, 2));
 
 const FIGURE_WORDS: Record<string, string> = {
   largestLine: 'largest line current (A)',
@@ -9,14 +12,23 @@ const FIGURE_WORDS: Record<string, string> = {
   voltageUnbalance: 'voltage unbalance |V2|/|V1| (%)',
 };
 
+/** True when the report covers several boards of an installation. */
+const isInstallation = (r: RebalanceReport) => r.boards.all.length > 1;
+
 function scoreWords(r: RebalanceReport): string {
-  const over = r.conditions.length > 1 ? (r.combine === 'worst' ? ', worst condition' : ', weighted mean of conditions') : '';
+  const conditionCount = new Set(r.conditions.map((c) => c.name)).size;
+  const over = conditionCount > 1 ? (r.combine === 'worst' ? ', worst condition' : ', weighted mean of conditions') : '';
   if (r.aim === 'custom') return `custom score${over}`;
   const aim = r.aim;
   const terms = (Object.keys(aim) as (keyof typeof aim)[])
     .filter((k) => aim[k] > 0)
     .map((k) => (aim[k] === 1 ? FIGURE_WORDS[k]! : `${fixed(aim[k], 2)} × ${FIGURE_WORDS[k]!}`));
-  return `${terms.join(' + ')}${over}`;
+  const where = !isInstallation(r)
+    ? ''
+    : r.boards.measured.length > 1
+      ? ', added over the incomers of every board'
+      : `, at the incomer of "${r.boards.measured[0]}"`;
+  return `${terms.join(' + ')}${where}${over}`;
 }
 
 /** Digits that keep a score readable whatever its size (a near-zero neutral still shows). */
@@ -36,14 +48,48 @@ function verdict(r: RebalanceReport): string {
 
 function workOrder(r: RebalanceReport): string {
   if (r.moves.length === 0) return '  (no moves)';
+  if (isInstallation(r))
+    return renderTableWithin(
+      [{ header: 'board', align: 'left' }, { header: 'no.' }, { header: 'circuit', align: 'left' }, { header: 'now on', align: 'left' }, { header: 'move to', align: 'left' }],
+      r.moves.map((m) => [m.board, String(m.circuit), m.name, m.from, m.to]),
+    );
   return renderTable(
     [{ header: 'no.' }, { header: 'circuit', align: 'left' }, { header: 'now on', align: 'left' }, { header: 'move to', align: 'left' }],
     r.moves.map((m) => [String(m.circuit), m.name, m.from, m.to]),
   );
 }
 
-const amps = (x: number | null) => (x === null ? '-' : fixed(x, 1));
-const percent = (x: number | null) => (x === null ? '-' : fixed(x, 2));
+/** Installations: two rows per board's incomer (now, after), network re-solve; `*` marks the boards the score reads. */
+function boardsTable(r: RebalanceReport, condition: string): string {
+  const rows: { board: string; measured: boolean; before: ConditionFigures; after: ConditionFigures }[] = [
+    ...r.conditions.filter((c) => c.name === condition).map((c) => ({ board: c.board, measured: true, before: c.solved.before, after: c.solved.after })),
+    ...r.otherBoards.filter((c) => c.name === condition).map((c) => ({ board: c.board, measured: false, before: c.before, after: c.after })),
+  ].sort((a, b) => r.boards.all.indexOf(a.board) - r.boards.all.indexOf(b.board));
+  const first = rows[0]!.before;
+  const columns = [
+    { header: 'board incomer', align: 'left' as const },
+    { header: '', align: 'left' as const },
+    ...first.lineA.map((_, k) => ({ header: `line ${'ABC'[k]}` })),
+    ...(first.neutralA !== null ? [{ header: 'neutral' }] : []),
+    ...(first.currentUnbalancePercent !== null ? [{ header: '|I2|/|I1|' }] : []),
+    ...(first.voltageUnbalancePercent !== null ? [{ header: '|V2|/|V1|' }] : []),
+  ];
+  const cells = (f: ConditionFigures) => [
+    ...f.lineA.map((a) => amps(a)),
+    ...(first.neutralA !== null ? [amps(f.neutralA)] : []),
+    ...(first.currentUnbalancePercent !== null ? [percent(f.currentUnbalancePercent)] : []),
+    ...(first.voltageUnbalancePercent !== null ? [percent(f.voltageUnbalancePercent)] : []),
+  ];
+  const mark = rows.some((x) => !x.measured);
+  return renderTableWithin(
+    columns,
+    rows.flatMap(({ board, measured, before, after }) => [
+      [`${mark ? (measured ? '* ' : '  ') : ''}${board}`, 'now', ...cells(before)],
+      ['', 'after', ...cells(after)],
+    ]),
+  );
+}
+
 
 function conditionTable(c: ConditionComparison, lines: readonly string[]): string {
   const rows: string[][] = [];
@@ -76,19 +122,30 @@ function moveTable(r: RebalanceReport): string {
 
 export function renderRebalanceReport(r: RebalanceReport): string {
   const lines = r.conditions[0]?.solved.before.lineA.map((_, k) => 'ABC'[k]!) ?? [];
+  const installation = isInstallation(r);
   const parts: string[] = [
     r.board.name,
-    `Rebalancing: ${r.search.movable} of ${r.search.circuits} circuits can move${r.search.pinned ? `, ${r.search.pinned} pinned` : ''}`,
+    `Rebalancing: ${r.search.movable} of ${r.search.circuits} circuits can move${r.search.pinned ? `, ${r.search.pinned} pinned` : ''}${installation ? ` (boards: ${r.boards.movable.join(', ')})` : ''}`,
     `Score: ${scoreWords(r)}`,
     `  fast model:       now ${score(r.score.before)}  →  after ${score(r.score.after)}   lower bound ${r.score.lowerBound === null ? '-' : score(r.score.lowerBound)}`,
     `  network re-solve: now ${score(r.solvedScore.before)}  →  after ${score(r.solvedScore.after)}`,
     `  ${verdict(r)}`,
   ];
   parts.push(section(`Work order (${r.moves.length} move${r.moves.length === 1 ? '' : 's'})`) + workOrder(r));
-  for (const c of r.conditions) {
-    const title = r.conditions.length > 1 ? `Condition "${c.name}" (weight ${fixed(c.weight, 2)}), network re-solve` : 'Before and after, network re-solve';
-    parts.push(section(title) + conditionTable(c, lines));
-  }
+  const names = [...new Set(r.conditions.map((c) => c.name))];
+  if (installation)
+    for (const name of names) {
+      const weight = r.conditions.find((c) => c.name === name)!.weight;
+      const what = 'incomer currents (A) and unbalance (%), installation re-solved';
+      const title = names.length > 1 ? `Condition "${name}" (weight ${fixed(weight, 2)}): ${what}` : `Before and after: ${what}`;
+      const key = r.otherBoards.length ? '\n  * the score reads these incomers' : '';
+      parts.push(section(title) + boardsTable(r, name) + key);
+    }
+  else
+    for (const c of r.conditions) {
+      const title = r.conditions.length > 1 ? `Condition "${c.name}" (weight ${fixed(c.weight, 2)}), network re-solve` : 'Before and after, network re-solve';
+      parts.push(section(title) + conditionTable(c, lines));
+    }
   if (r.moveTable && r.moveTable.length > 1) parts.push(section('Best score by moves allowed') + moveTable(r));
   if (r.notes.length) parts.push(section('Notes') + r.notes.map((n) => `  * ${n}`).join('\n'));
   parts.push(section('Cautions') + r.cautions.map((c) => `  * ${c}`).join('\n'));

@@ -22,6 +22,8 @@ import type { BankSizing, CompensatorSizing, CorrectionReport, CorrectionStatus,
 import { ARRANGEMENT_NAMES, CORRECTION_CAUTIONS, infeasibleReason, reportSummary, warningText } from './correctionWording.js';
 import { definedOnly } from './_internal/optionSchemas.js';
 import { assertViableBoard } from '../analysis/viableOperatingPoint.js';
+import { CORRECTION_DEFAULTS } from './correctionDefaults.js';
+import { refitReactors, selectionWithResizedReactors } from './_internal/refitReactors.js';
 
 function sizeArrangement(board: Board, spec: CorrectionSpec & { arrangement: Arrangement }): BankSizing | CompensatorSizing {
   switch (spec.arrangement) {
@@ -131,8 +133,23 @@ export function correctBoard(board: Board, spec: unknown): CorrectionReport {
       capacitanceTolerance: parsed.capacitanceTolerance,
       voltageRiseLimitPercent: parsed.voltageRiseLimitPercent,
     });
-  const recommended = sizing.status === 'already-meets-target' ? [] : (selection?.equipment ?? sized.equipment);
+  // Built with reactors, a compensator gets its reactors sized again beside the capacitors as built
+  // (units round capacitors; the reactors were sized beside exact ones), and keeps them if that helps.
+  const refit =
+    selection && !selection.unbuildable && sizing.arrangement === 'balancing-compensator' && sizing.recommended === 'ideal'
+      ? refitReactors(board, selection.equipment, {
+          target: sizing.target,
+          balance: sizing.balance,
+          includeZeroSequence: sizing.branchesUsed === 'delta-and-star',
+          weights: sizing.weights,
+          maxIterations: CORRECTION_DEFAULTS.maxIterations,
+        })
+      : null;
+  const useRefit = refit !== null && refit.used;
+  const recommended = sizing.status === 'already-meets-target' ? [] : useRefit ? refit.equipment : (selection?.equipment ?? sized.equipment);
   const verification = verifyCorrection(board, verifyOptions(recommended));
+  const built = useRefit && selection ? selectionWithResizedReactors(selection, refit, verification.branches) : selection;
+  const resizing = refit ? { reactors: refit.reactors, objectiveSized: refit.objectiveSized, objectiveResized: refit.objectiveResized, converged: refit.converged, used: useRefit, solves: refit.solves } : null;
   const idealVerification = sizing.arrangement === 'balancing-compensator' ? verifyCorrection(board, verifyOptions(sizing.ideal.equipment)) : null;
 
   const balance = sizing.arrangement === 'balancing-compensator' ? checkBalance(verification.after, sizing.balance) : null;
@@ -151,7 +168,7 @@ export function correctBoard(board: Board, spec: unknown): CorrectionReport {
     const reactorKvar = sized.branches.reduce((sum, b) => sum + (b.element === 'reactor' ? -b.kvarAtAppliedV : 0), 0);
     if (selection && reactorKvar > 0) {
       const idealCapKvar = sized.branches.reduce((sum, b) => sum + (b.element === 'capacitor' ? b.kvarAtAppliedV : 0), 0);
-      if (selection.deliveredKvar < idealCapKvar) reasons.push(infeasibleReason.capacitorsRoundedDownBesideReactors(selection.deliveredKvar, idealCapKvar, reactorKvar));
+      if (selection.deliveredKvar < idealCapKvar) reasons.push(infeasibleReason.capacitorsRoundedDownBesideReactors(selection.deliveredKvar, idealCapKvar, reactorKvar, resizing));
     }
   } else if (!verification.tolerance.low.check.met || verification.tolerance.high.check.leadingLines.length > 0)
     status = 'meets-target-at-nominal-capacitance';
@@ -165,6 +182,7 @@ export function correctBoard(board: Board, spec: unknown): CorrectionReport {
     ...starPointWarnings(sizing, board),
     ...(sizing.arrangement === 'balancing-compensator' ? sizing.warnings : []),
     ...(selection?.warnings ?? []).filter((w) => !settledByVerdict.has(w.code)),
+    ...(resizing?.used ? [{ code: 'reactors-resized', message: warningText.reactorsResized(resizing.reactors), path: null, value: null, threshold: null }] : []),
     ...verification.warnings,
   ];
   const what = ARRANGEMENT_NAMES[parsed.arrangement];
@@ -177,10 +195,11 @@ export function correctBoard(board: Board, spec: unknown): CorrectionReport {
     reasons,
     target,
     sizing,
-    selection,
+    selection: built,
     verification,
     idealVerification,
     balance,
+    reactorResizing: resizing,
     warnings,
     cautions: CORRECTION_CAUTIONS,
   };

@@ -358,6 +358,25 @@ export interface CorrectionVerification {
   readonly warnings: readonly CorrectionWarning[];
 }
 
+/**
+ * A balancing compensator built from units: its reactors sized again beside the capacitors as built
+ * (the capacitor-only objective with the reactors as unknowns), and whether the build uses them.
+ */
+export interface ReactorResizing {
+  /** Per reactor branch: output at nominal voltage beside the exact capacitors and beside the built ones, kvar (inductive, ≥ 0). */
+  readonly reactors: readonly { readonly branch: string; readonly sizedKvar: number; readonly resizedKvar: number }[];
+  /** Weighted residual Σ wₖ·rₖ² (I2, I0, Q1 − target, per unit) with the reactors as sized and as re-sized. */
+  readonly objectiveSized: number;
+  readonly objectiveResized: number;
+  readonly converged: boolean;
+  /**
+   * True when the re-sized reactors are what is built and verified: the build as sized misses a target
+   * (PF or balance) and the re-sized one meets more of them, or as many with a lower residual.
+   */
+  readonly used: boolean;
+  readonly solves: number;
+}
+
 export type CorrectionStatus =
   | 'meets-target'
   | 'meets-target-at-nominal-capacitance'
@@ -382,6 +401,8 @@ export interface CorrectionReport {
   readonly idealVerification: CorrectionVerification | null;
   /** Balancing compensator only: the unbalance of the board as built against the balance target. */
   readonly balance: BalanceCheck | null;
+  /** Balancing compensator with reactors, built from units: the reactors re-sized to the capacitors as built; null otherwise. */
+  readonly reactorResizing: ReactorResizing | null;
   readonly warnings: readonly CorrectionWarning[];
   readonly cautions: readonly string[];
 }

@@ -81,12 +81,28 @@ export const infeasibleReason = {
       .join(', ')}: reactors on ${branches.join(', ')} are needed, which a capacitor-only build cannot give`,
   capacitorsCannotBalance: (shortfalls: readonly string[]) =>
     `capacitors alone cannot bring the unbalance down without making a line lead: ${shortfalls.join('; ')}`,
-  capacitorsRoundedDownBesideReactors: (built: number, ideal: number, reactor: number) =>
-    `beside reactors kept at their sized values a capacitor may not exceed its requirement (past it the balance tips and lines lead), so the units fall short of the ideal capacitors: ${built.toFixed(2)} kvar built against ${ideal.toFixed(2)} kvar sized; the net compensation, capacitors less the ${reactor.toFixed(2)} kvar of reactors, falls from ${(ideal - reactor).toFixed(2)} to ${(built - reactor).toFixed(2)} kvar. Re-sizing the reactors to the capacitors as built is not part of this study`,
+  capacitorsRoundedDownBesideReactors: (built: number, ideal: number, reactor: number, resizing: ResizingWords | null) => {
+    const head = `beside the reactors a capacitor may not exceed its requirement (past it the balance tips and lines lead), so the units fall short of the ideal capacitors: ${built.toFixed(2)} kvar built against ${ideal.toFixed(2)} kvar sized`;
+    if (resizing?.used) {
+      const sum = (key: 'sizedKvar' | 'resizedKvar') => resizing.reactors.reduce((s, r) => s + r[key], 0);
+      return `${head}. The reactors were re-sized to the capacitors as built (${reactorChanges(resizing.reactors)}; ${sum('sizedKvar').toFixed(2)} → ${sum('resizedKvar').toFixed(2)} kvar in all, at nominal voltage), which is the build verified here, and it still misses the target`;
+    }
+    const tried = resizing ? '; re-sizing the reactors to the capacitors as built did not bring the board closer to the targets, so they stay as sized' : '';
+    return `${head}; the net compensation, capacitors less the ${reactor.toFixed(2)} kvar of reactors, falls from ${(ideal - reactor).toFixed(2)} to ${(built - reactor).toFixed(2)} kvar${tried}`;
+  },
   unitsMissTarget: (shortfalls: readonly string[]) => `with the units chosen the corrected board misses the target: ${shortfalls.join('; ')}`,
 };
 
+/** What the wording needs of a reactor re-sizing (see ReactorResizing). */
+interface ResizingWords {
+  readonly used: boolean;
+  readonly reactors: readonly { readonly branch: string; readonly sizedKvar: number; readonly resizedKvar: number }[];
+}
+const reactorChanges = (reactors: ResizingWords['reactors']) => reactors.map((r) => `${r.branch} ${r.sizedKvar.toFixed(2)} → ${r.resizedKvar.toFixed(2)} kvar`).join(', ');
+
 export const warningText = {
+  reactorsResized: (reactors: ResizingWords['reactors']) =>
+    `the reactors were sized again beside the capacitors as built from units (${reactorChanges(reactors)} at nominal voltage): the build verified here has the re-sized reactors`,
   alreadyMet: 'the board already meets the target: nothing to add',
   unitFrequency: (name: string, ratedHz: number, hz: number) =>
     `unit "${name}" is rated for ${ratedHz} Hz and used at ${hz} Hz: its output and current scale by ${f3(hz / ratedHz)}`,

@@ -8,7 +8,6 @@
  */
 import type { Board } from '../board/boardModel.js';
 import type { SolveOptions } from '../network/solveNetwork.js';
-import { abs } from '../complex.js';
 import { balanceTargetSchema, compensatorSchema, targetSchema, type BalanceTargetSpec, type CompensatorSpec, type TargetSpec } from './correctionSpec.js';
 import { checkBalance, resolveBalanceTarget, type BalanceTarget } from './balanceTarget.js';
 import { CORRECTION_DEFAULTS } from './correctionDefaults.js';
@@ -21,7 +20,7 @@ import { checkRules, definedOnly, maxIterationsSchema, solveOptionsSchema } from
 import { parseOptions } from '../_internal/zodIssues.js';
 import { createProbe, type ProbeState } from './_internal/boardProbe.js';
 import { branchSizings, lineComparisons } from './_internal/branchReadings.js';
-import { residualWeights, type ResidualBases } from './_internal/compensatorResidual.js';
+import { residualBasesFor, residualWeights } from './_internal/compensatorResidual.js';
 import { solveIdealCompensator } from './_internal/idealCompensator.js';
 import { solveCapacitorOnlyCompensator } from './_internal/capacitorOnlyCompensator.js';
 
@@ -94,8 +93,6 @@ function resolveCompensatorOptions(board: Board, input: CompensatorOptions | und
   };
 }
 
-const tanOf = (pf: number) => Math.sqrt(1 - pf * pf) / pf;
-
 /**
  * Sizes the ideal and the best capacitor-only balancing compensator for a
  * three-phase board.
@@ -116,19 +113,7 @@ export function sizeBalancingCompensator(board: Board, options?: CompensatorOpti
   const slots = [...deltaSlots(board), ...(opts.branches === 'delta-and-star' ? starSlots(board, 'neutral') : [])];
   const probe = createProbe(board, slots, 'compensator', opts.solve);
   const start = probe.at(slots.map(() => 0));
-  const i1 = start.result.sequences ? abs(start.result.sequences.current.positive) : 0;
-  const currentBase = i1 > 0 ? i1 : 1;
-  // The PF target is a lower bound: a board already better than it keeps its own
-  // Q1 (clamped to the upper bound), so nothing adds lagging vars to reach it.
-  const ps0 = start.result.powerFactor.positiveSequence;
-  const presentTan = ps0 && ps0.kW > 0 ? ps0.kvar / ps0.kW : Infinity;
-  const lowTan = target.leading === 'allowed' ? -tanOf(target.minLeadingPf ?? target.pf) : target.maxLaggingPf !== null ? tanOf(target.maxLaggingPf) : 0;
-  const bases: ResidualBases = {
-    currentA: currentBase,
-    powerKVA: (3 * board.nominalLineToNeutralV * currentBase) / 1000,
-    targetTan: Math.min(tanOf(target.pf), Math.max(presentTan, lowTan)),
-    includeZeroSequence: opts.branches === 'delta-and-star',
-  };
+  const bases = residualBasesFor(start.result, board, target, opts.branches === 'delta-and-star');
   const weights = residualWeights(bases, opts.weights);
   const warnings: CorrectionWarning[] = [];
   const warn = (code: string, message: string) => warnings.push({ code, message, path: null, value: null, threshold: null });

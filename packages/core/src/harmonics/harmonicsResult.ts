@@ -69,6 +69,27 @@ export interface TddCheck {
   readonly source: string;
 }
 
+/** One bus voltage of the board against the IEEE 519 voltage limits. */
+export interface BusVoltageDistortion {
+  /** `A-N` (to the neutral bar; to the centroid of the line voltages on a 3-wire board) or `A-B`. */
+  readonly bus: string;
+  readonly thdPercent: number | null;
+  /** The largest order's voltage, % of the fundamental; null when there is none. */
+  readonly largest: { readonly order: number; readonly percent: number } | null;
+  /** Orders above the individual limit, ascending, % of the fundamental. */
+  readonly ordersAbove: readonly { readonly order: number; readonly percent: number }[];
+  readonly ok: boolean;
+}
+
+export interface VoltageDistortionCheck {
+  readonly individualLimitPercent: number;
+  readonly thdLimitPercent: number;
+  /** Every bus voltage of the board: each phase, then each line-to-line pair. */
+  readonly buses: readonly BusVoltageDistortion[];
+  readonly ok: boolean;
+  readonly source: string;
+}
+
 export interface ScanPeak {
   /** Terminal pair the impedance is seen between: `A-N`, `A-B`... */
   readonly pair: string;
@@ -171,6 +192,8 @@ export interface HarmonicsReport {
   /** Board figures, arithmetic over the lines: ΣP / Σ(V·I). */
   readonly powerFactor: { readonly true: number | null; readonly displacement: number | null };
   readonly tdd: TddCheck | null;
+  /** The board's bus voltages against the IEEE 519 voltage limits (individual order and THD). */
+  readonly voltageDistortion: VoltageDistortionCheck;
   readonly scan: ResonanceScan;
   readonly capacitorDuty: CapacitorDuty | null;
   readonly spectra: readonly LoadSpectrumNote[];

@@ -2,7 +2,12 @@
  * All wording of the harmonic study: warnings, the neutral sizing note,
  * assumptions and cautions, in one place.
  */
+import { distinctDigits } from '../correction/correctionWording.js';
+import type { BusVoltageDistortion } from './harmonicsResult.js';
+
 const pct = (x: number) => `${x.toFixed(1)} %`;
+/** A figure above its limit, with the decimals it needs to read above it (5.04 %, never "5.0 %, above 5 %"). */
+const above = (x: number, limit: number) => `${distinctDigits(x, limit, 1)[0]} %`;
 
 export const NEUTRAL_PRACTICE =
   'with mostly non-linear single-phase loads the neutral carries the triplen currents of all three phases and is counted as a current-carrying conductor (NEC 310.15, confirmed for the 2008 numbering); a neutral of twice the phase size is the usual practice for such feeders (IEEE Std 1100, from memory)';
@@ -15,7 +20,11 @@ export const harmonicsWarningText = {
   resonance: (states: readonly string[], peak: number, order: number) =>
     `resonance with the supply at h ≈ ${peak.toFixed(2)}, within ±10 % of order ${order}, with the bank at ${states.length > 3 ? `${states.slice(0, 3).join(', ')} and ${states.length - 3} more state(s)` : states.join(', ')}: voltages and capacitor currents are amplified there`,
   capacitorDuty: (label: string, branch: string, what: string) => `with ${label} the capacitors of branch ${branch} exceed their limit: ${what}`,
-  voltageThd: (phase: string, thd: number, limit: number) => `voltage THD at the board on ${phase} is ${pct(thd)}, above the ${limit} % IEEE 519 limit for ≤ 1 kV`,
+  voltageThd: (bus: string, thd: number, limit: number) => `voltage THD at the board on ${bus} is ${above(thd, limit)}, above the ${limit} % IEEE 519 limit for ≤ 1 kV`,
+  voltageIndividual: (buses: readonly BusVoltageDistortion[], limit: number) =>
+    `a single harmonic of the board voltage is above the ${limit} % IEEE 519 limit for ≤ 1 kV (% of the fundamental): ${buses
+      .map((b) => `${b.bus} ${b.ordersAbove.map((o) => `h${o.order} ${above(o.percent, limit)}`).join(' and ')}`)
+      .join(', ')}`,
   tdd: (phase: string, tdd: number, limit: number, orders: readonly number[]) =>
     `line ${phase}: TDD ${pct(tdd)} (IEEE 519 limit ${limit} % for this short-circuit ratio)${orders.length ? `; order${orders.length > 1 ? 's' : ''} ${orders.join(', ')} above the individual limits` : ''}`,
   idealSource: 'the supply has no impedance in the board file: harmonic currents make no voltage distortion and no bank can resonate with it — give supply.transformer or supply.impedance for a real answer',

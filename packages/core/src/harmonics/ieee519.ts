@@ -24,8 +24,14 @@ const ROWS: readonly Row[] = [
 
 export const IEEE_519_SOURCE = 'IEEE 519-2014 Table 2 (= 519-1992 Table 10.3), even orders at 25 % of the odd limits';
 
-/** Voltage distortion limits at ≤ 1 kV: 5 % individual, 8 % THD (IEEE 519-2014 Table 1, confirmed secondary). */
+/**
+ * Voltage distortion limits for a bus at V ≤ 1.0 kV: 5 % individual harmonic, 8 % THD, % of the
+ * fundamental (IEEE 519-2014 Table 1, the range added in 2014; confirmed secondary: a published
+ * summary of the 2014 changes; the 8 % THD also in a library's table of IEEE 519-2022).
+ */
 export const IEEE_519_VOLTAGE_LIMITS = { individualPercent: 5, thdPercent: 8 } as const;
+
+export const IEEE_519_VOLTAGE_SOURCE = 'IEEE 519-2014 Table 1, bus voltage ≤ 1.0 kV: 5 % individual harmonic, 8 % THD';
 
 const rowOf = (ratio: number): Row => ROWS.find((r) => ratio < r.below)!;
 

@@ -14,7 +14,8 @@ import { solveAtOrder } from './networkAtOrder.js';
 import { readLines, readLineToLine, readNeutral, type OrderSolution } from './readHarmonics.js';
 import { combinationLabel, scanResonance, stepCombinations } from './scanResonance.js';
 import { DUTY_LIMITS, dutyCase, dutyRatio } from './capacitorDuty.js';
-import { IEEE_519_SOURCE, IEEE_519_VOLTAGE_LIMITS, ieee519OrderLimit, ieee519Row } from './ieee519.js';
+import { IEEE_519_SOURCE, ieee519OrderLimit, ieee519Row } from './ieee519.js';
+import { checkVoltageDistortion } from './voltageDistortion.js';
 import { HARMONICS_DEFAULTS } from './harmonicsDefaults.js';
 import type { HarmonicsBoardSpec } from './harmonicsSpec.js';
 import { HARMONICS_CAUTIONS, harmonicsWarningText, NEUTRAL_PRACTICE } from './harmonicsWording.js';
@@ -151,6 +152,7 @@ export function analyseHarmonics(board: Board, model: HarmonicModel, options: Ha
   const orders = solveHarmonicOrders(board, model, options.solve);
   const fundamental: NetworkSolution = orders[0]!.solution;
   const lines = readLines(orders);
+  const lineToLine = readLineToLine(orders);
   const neutral = neutralCheck(board, orders, lines);
   const tdd = tddCheck(board, model, lines);
   const scan = scanResonance(fundamental, model, { ...checkedOrders(model), ...(options.scanOrders ? { grid: options.scanOrders } : {}) });
@@ -161,9 +163,14 @@ export function analyseHarmonics(board: Board, model: HarmonicModel, options: Ha
   if (neutral?.overloaded) warn('neutral-overload', harmonicsWarningText.neutralOverload(neutral.current.rms, neutral.ratingA!), neutral.current.rms, neutral.ratingA);
   if (neutral?.ratioToPhase !== null && neutral?.ratioToPhase !== undefined && neutral.ratioToPhase > 1)
     warn('neutral-above-phase', harmonicsWarningText.neutralAbovePhase(neutral.ratioToPhase), neutral.ratioToPhase, 1);
-  for (const l of lines)
-    if (l.voltage.thdPercent !== null && l.voltage.thdPercent > IEEE_519_VOLTAGE_LIMITS.thdPercent)
-      warn('voltage-thd', harmonicsWarningText.voltageThd(l.phase, l.voltage.thdPercent, IEEE_519_VOLTAGE_LIMITS.thdPercent), l.voltage.thdPercent, IEEE_519_VOLTAGE_LIMITS.thdPercent);
+  const voltageDistortion = checkVoltageDistortion(lines, lineToLine);
+  const { individualLimitPercent: individual, thdLimitPercent: thdLimit } = voltageDistortion;
+  for (const bus of voltageDistortion.buses)
+    if (bus.thdPercent !== null && bus.thdPercent > thdLimit) warn('voltage-thd', harmonicsWarningText.voltageThd(bus.bus, bus.thdPercent, thdLimit), bus.thdPercent, thdLimit);
+  // One warning for every bus with an order above the individual limit: the value is the worst.
+  const overIndividual = voltageDistortion.buses.filter((b) => b.ordersAbove.length);
+  if (overIndividual.length)
+    warn('voltage-individual', harmonicsWarningText.voltageIndividual(overIndividual, individual), Math.max(...overIndividual.flatMap((b) => b.ordersAbove.map((o) => o.percent))), individual);
   // One warning per order at risk, naming every bank state that resonates near it.
   for (const o of scan.checkedOrders) {
     const hits = scan.combinations.flatMap((c) => {
@@ -193,13 +200,14 @@ export function analyseHarmonics(board: Board, model: HarmonicModel, options: Ha
     orders: orders.slice(1).map((o) => o.order),
     state: model.bank ? `every bank step on (${combinationLabel(model.bank, model.bank.stepLoads.map(() => true))})` : 'as given',
     lines,
-    lineToLine: readLineToLine(orders),
+    lineToLine,
     neutral,
     powerFactor: {
       true: apparent > 0 ? watts / apparent : null,
       displacement: apparent1 > 0 ? fundamentalLines.reduce((s, l) => s + l.kW * 1000, 0) / apparent1 : null,
     },
     tdd,
+    voltageDistortion,
     scan,
     capacitorDuty: duty,
     spectra: board.loads.flatMap((load, i) => {

@@ -11,6 +11,15 @@
  * fits the need, ties going to the step that has waited longest (rotation
  * evens the wear). A step that has been switched out may reconnect only after
  * the reconnect (discharge) time.
+ *
+ * With an upper limit (`upperPf`, lagging; 1 = unity) the controller holds a
+ * band instead of a single target: Q between max(P, 0)·tan φ_upper and
+ * max(P, 0)·tan φ_target. A step switches in only if it leaves Q at or above the
+ * lower edge (it would not carry the PF past the upper limit or leading), and a
+ * step switches out when Q has stayed below that edge for the delay: the
+ * smallest connected step that brings Q back to the edge, or the largest if
+ * none does. Without an upper limit over-correction is judged against the
+ * target alone, as above.
  */
 import type { PhaseId } from '../board/boardModel.js';
 
@@ -20,6 +29,8 @@ export interface SwitchedStep {
   /** Output at nominal voltage, kvar (the channel's total: all three phases for 'ABC'). */
   readonly kvar: number;
   readonly channel: StepChannel;
+  /** Controller output that drives the step, where a designed bank numbers them. */
+  readonly output?: number;
 }
 
 export interface SwitchingSettings {
@@ -27,6 +38,11 @@ export interface SwitchingSettings {
   readonly responseShare: number;
   readonly delaySeconds: number;
   readonly reconnectSeconds: number;
+  /**
+   * Highest lagging PF the bank may bring a channel to (1 = unity: never leading);
+   * omitted: no upper limit (over-correction judged against targetPf alone).
+   */
+  readonly upperPf?: number;
 }
 
 /** What the controller sees on one channel over one interval, W and var. */
@@ -59,6 +75,8 @@ export function createBankController(steps: readonly SwitchedStep[], settings: S
   const changedAt = new Float64Array(n).fill(Number.NEGATIVE_INFINITY);
   const channels = [...new Set(steps.map((s) => s.channel))];
   const tanTarget = Math.tan(Math.acos(settings.targetPf));
+  const banded = settings.upperPf !== undefined;
+  const tanUpper = banded ? Math.tan(Math.acos(Math.min(1, settings.upperPf!))) : 0;
   const delayMs = settings.delaySeconds * 1000;
   const reconnectMs = settings.reconnectSeconds * 1000;
   const inTimer = new Map<StepChannel, number>(channels.map((c) => [c, 0]));
@@ -76,6 +94,23 @@ export function createBankController(steps: readonly SwitchedStep[], settings: S
     return best;
   };
 
+  /** The smallest of `candidates` whose removal gives back `excess` var, else the largest; longest-connected first. */
+  const pickRestoring = (candidates: number[], excess: number): number => {
+    let best = -1;
+    for (const s of candidates) {
+      if (best < 0) {
+        best = s;
+        continue;
+      }
+      const k = steps[s]!.kvar * 1000;
+      const kb = steps[best]!.kvar * 1000;
+      const enough = k >= excess;
+      const bestEnough = kb >= excess;
+      if (enough !== bestEnough ? enough : k !== kb ? (enough ? k < kb : k > kb) : changedAt[s]! < changedAt[best]!) best = s;
+    }
+    return best;
+  };
+
   return {
     steps,
     on,
@@ -85,27 +120,33 @@ export function createBankController(steps: readonly SwitchedStep[], settings: S
       const now = startMs + durationMs;
       for (const channel of channels) {
         const r = readingOf(channel);
-        const need = r.var - Math.max(r.w, 0) * tanTarget;
+        const p = Math.max(r.w, 0);
+        const need = r.var - p * tanTarget;
+        // Room before the upper PF limit: how much capacitance can go in without passing it.
+        const room = r.var - p * tanUpper;
         const threshold = settings.responseShare * smallest.get(channel)! * 1000;
         const mine = ofChannel.get(channel)!;
+        const overCorrected = banded ? room < 0 : need < -threshold;
         if (need > threshold) {
           outTimer.set(channel, 0);
           const t = inTimer.get(channel)! + durationMs;
           inTimer.set(channel, t);
           if (t < delayMs) continue;
-          const s = pick(mine.filter((s) => !on[s] && now - changedAt[s]! >= reconnectMs), need);
+          const free = mine.filter((s) => !on[s] && now - changedAt[s]! >= reconnectMs && (!banded || steps[s]!.kvar * 1000 <= room));
+          const s = pick(free, need);
           if (s >= 0) {
             on[s] = 1;
             closings[s]!++;
             changedAt[s] = now;
             inTimer.set(channel, 0);
           }
-        } else if (need < -threshold) {
+        } else if (overCorrected) {
           inTimer.set(channel, 0);
           const t = outTimer.get(channel)! + durationMs;
           outTimer.set(channel, t);
           if (t < delayMs) continue;
-          const s = pick(mine.filter((s) => on[s] === 1), -need);
+          const connected = mine.filter((s) => on[s] === 1);
+          const s = banded ? pickRestoring(connected, -room) : pick(connected, -need);
           if (s >= 0) {
             on[s] = 0;
             openings[s]!++;

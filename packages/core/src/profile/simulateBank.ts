@@ -12,7 +12,7 @@ import { createBankController, type SwitchingSettings, type SwitchedStep, type S
 
 export interface BankRun {
   readonly figures: IntervalFigures;
-  /** Connected kvar (nominal) during each interval. */
+  /** Connected switched kvar (nominal) during each interval; the fixed part comes on top. */
   readonly connectedKvar: Float64Array;
   readonly closings: readonly number[];
   readonly openings: readonly number[];
@@ -39,13 +39,16 @@ export interface SimulateBankInput {
   readonly utcMs: Float64Array;
   readonly intervalMs: number;
   readonly steps: readonly SwitchedStep[];
+  /** Always-connected parts (a bank's fixed part), by channel; the controller reads the board with them in. */
+  readonly fixed?: readonly SwitchedStep[];
   readonly settings: SwitchingSettings;
   readonly solve?: BatchSolveOptions;
 }
 
 export function simulateBank(input: SimulateBankInput): BankRun {
   const { board, steps } = input;
-  const layout = steps.map((s) => stepEdges(board, s.channel));
+  const fixed = input.fixed ?? [];
+  const layout = [...steps, ...fixed].map((s) => stepEdges(board, s.channel));
   const net = compileBatchNetwork(board, input.drivers, layout.flat().map((x) => x.edge));
   const stepSlots = layout.map((edges) => edges.map(({ edge, share }) => ({ e: edgeIndex(net, edge.from, edge.to, edge.vNominal), share })));
   const kernel = createBatchKernel(net, input.solve);
@@ -65,6 +68,8 @@ export function simulateBank(input: SimulateBankInput): BankRun {
       for (const { e, share } of stepSlots[s]!) powers[e * 6 + 1] = powers[e * 6 + 1]! - steps[s]!.kvar * 1000 * share;
     }
     connectedKvar[i] = kvar;
+    for (let f = 0; f < fixed.length; f++)
+      for (const { e, share } of stepSlots[steps.length + f]!) powers[e * 6 + 1] = powers[e * 6 + 1]! - fixed[f]!.kvar * 1000 * share;
     kernel.solve(powers, i);
     recordInterval(kernel.state, board.sequence, figures, i);
     if (i > 0 && input.utcMs[i]! - input.utcMs[i - 1]! > input.intervalMs) controller.interrupt();

@@ -6,7 +6,8 @@
 import type { Board } from '../board/boardModel.js';
 import type { DriverColumns, DriverSpec } from './batchNetwork.js';
 import { compileBatchNetwork } from './batchNetwork.js';
-import type { SwitchedStep } from './bankController.js';
+import type { SwitchedStep, SwitchingSettings } from './bankController.js';
+import type { SwitchingFromBank } from './switchingFromBank.js';
 import type { SequenceReport } from './checkIntervalSequence.js';
 import { maximumOf } from './intervalStatistics.js';
 import { PROFILE_DEFAULTS } from './profileDefaults.js';
@@ -40,11 +41,17 @@ export interface ProfileStudyOptions {
   readonly bank?: boolean;
   /** Overrides profile.bank.targetPf. */
   readonly targetPf?: number;
+  /**
+   * Simulate this bank instead (the correction study's steps, fixed part and controller,
+   * see switchingFromBank); `bank` and `targetPf` are then not read.
+   */
+  readonly designedBank?: SwitchingFromBank;
   readonly solve?: BatchSolveOptions;
   readonly onProgress?: (stage: 'solve' | 'bank', done: number, total: number) => void;
 }
 
 export interface BankStepRun {
+  /** The controller output of a designed bank's step, else the step's place in the list (1-based). */
   readonly step: number;
   readonly channel: string;
   readonly kvar: number;
@@ -55,13 +62,23 @@ export interface BankStepRun {
 }
 
 export interface ProfileBankResult {
+  /** Where the steps came from: sized here from the profile, profile.bank.steps, or the correction study. */
+  readonly source: 'profile' | 'board-file-steps' | 'correction-study';
   readonly sizedFromProfile: boolean;
   readonly needKvar: Readonly<Record<string, number>> | null;
   readonly steps: readonly BankStepRun[];
+  /** Switched steps' kvar in all (the fixed part not included). */
   readonly totalKvar: number;
+  /** Always-connected kvar simulated with the steps (a correction-study bank's fixed part). */
+  readonly fixedKvar: number;
+  /** Parts of the designed bank the simulator cannot place (line-to-line single steps): outputs, and fixed kvar. */
+  readonly notSimulated: { readonly outputs: readonly number[]; readonly fixedKvar: number } | null;
   readonly settings: {
     readonly targetPf: number;
-    readonly coverShare: number;
+    /** Highest lagging PF the controller brings the board to (1: never leading), or null: no upper limit. */
+    readonly upperPf: number | null;
+    /** Share of intervals the sizing aims to hold at the target; null when the steps were not sized here. */
+    readonly coverShare: number | null;
     readonly responseShare: number;
     readonly delaySeconds: number;
     readonly reconnectSeconds: number;
@@ -152,52 +169,62 @@ export function studyProfile(input: ProfileStudyInput, options: ProfileStudyOpti
   let bank: ProfileBankResult | null = null;
   let after: IntervalFigures | null = null;
   let connectedKvar: Float64Array | null = null;
-  if (options.bank) {
+  const designed = options.designedBank;
+  if (options.bank || designed) {
     const b = input.profile?.bank;
-    const settings = {
-      targetPf: options.targetPf ?? b?.targetPf ?? PROFILE_DEFAULTS.targetPf,
-      coverShare: b?.coverShare ?? PROFILE_DEFAULTS.coverShare,
-      responseShare: b?.responseShare ?? PROFILE_DEFAULTS.responseShare,
-      delaySeconds: b?.delaySeconds ?? PROFILE_DEFAULTS.delaySeconds,
-      reconnectSeconds: b?.reconnectSeconds ?? PROFILE_DEFAULTS.reconnectSeconds,
-    };
+    const settings: SwitchingSettings & { coverShare: number | null } = designed
+      ? { ...designed.settings, coverShare: null }
+      : {
+          targetPf: options.targetPf ?? b?.targetPf ?? PROFILE_DEFAULTS.targetPf,
+          coverShare: b?.coverShare ?? PROFILE_DEFAULTS.coverShare,
+          responseShare: b?.responseShare ?? PROFILE_DEFAULTS.responseShare,
+          delaySeconds: b?.delaySeconds ?? PROFILE_DEFAULTS.delaySeconds,
+          reconnectSeconds: b?.reconnectSeconds ?? PROFILE_DEFAULTS.reconnectSeconds,
+        };
     let steps: readonly SwitchedStep[];
     let needKvar: Record<string, number> | null = null;
-    if (b?.steps) steps = b.steps.map((s) => ({ kvar: s.kvar, channel: s.phase ?? 'ABC' }));
+    const source: ProfileBankResult['source'] = designed ? 'correction-study' : b?.steps ? 'board-file-steps' : 'profile';
+    if (designed) steps = designed.steps;
+    else if (b?.steps) steps = b.steps.map((s) => ({ kvar: s.kvar, channel: s.phase ?? 'ABC' }));
     else {
       const sizing = sizeBankSteps(board, before, {
         targetPf: settings.targetPf,
-        coverShare: settings.coverShare,
+        coverShare: settings.coverShare!,
         stepCount: b?.stepCount ?? PROFILE_DEFAULTS.stepCount,
         perPhase: b?.perPhase ?? false,
       });
       steps = sizing.steps;
       needKvar = { ...sizing.needKvar };
     }
-    if (steps.length) {
-      const run = simulateBank({ board, drivers: input.drivers, columns: input.columns, utcMs: input.utcMs, intervalMs: input.intervalMs, steps, settings, ...(options.solve ? { solve: options.solve } : {}) });
+    const fixed = designed?.fixed ?? [];
+    if (steps.length || fixed.length) {
+      const run = simulateBank({ board, drivers: input.drivers, columns: input.columns, utcMs: input.utcMs, intervalMs: input.intervalMs, steps, fixed, settings, ...(options.solve ? { solve: options.solve } : {}) });
       after = run.figures;
       connectedKvar = run.connectedKvar;
       const years = (n * input.intervalMs) / (365.25 * 86_400_000);
       const stepRuns = steps.map((s, k) => ({
-        step: k + 1,
+        step: s.output ?? k + 1,
         channel: s.channel,
         kvar: s.kvar,
         closings: run.closings[k]!,
         openings: run.openings[k]!,
         closingsPerYear: years > 0 ? run.closings[k]! / years : 0,
       }));
-      const busiest = Math.max(...stepRuns.map((s) => s.closingsPerYear));
+      const busiest = Math.max(0, ...stepRuns.map((s) => s.closingsPerYear));
       const rise = new Float64Array(n);
       for (let i = 0; i < n; i++)
         for (let k = 0; k < board.phases.length; k++) rise[i] = Math.max(rise[i]!, run.figures.phaseV[k]![i]! - before.phaseV[k]![i]!);
       const worstRise = maximumOf(rise);
+      const { upperPf, ...rest } = settings;
       bank = {
-        sizedFromProfile: !b?.steps,
+        source,
+        sizedFromProfile: source === 'profile',
         needKvar,
         steps: stepRuns,
         totalKvar: steps.reduce((s, x) => s + x.kvar, 0),
-        settings,
+        fixedKvar: fixed.reduce((s, x) => s + x.kvar, 0),
+        notSimulated: designed && (designed.notSimulated.length || designed.fixedNotSimulatedKvar) ? { outputs: designed.notSimulated, fixedKvar: designed.fixedNotSimulatedKvar } : null,
+        settings: { ...rest, upperPf: upperPf ?? null },
         operationsPerYearLimit: PROFILE_DEFAULTS.operationsPerYearLimit,
         contactorLifeOperations: PROFILE_DEFAULTS.contactorLifeOperations,
         yearsToContactorLife: busiest > 0 ? PROFILE_DEFAULTS.contactorLifeOperations / busiest : null,

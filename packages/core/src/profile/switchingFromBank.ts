@@ -9,7 +9,8 @@
  * single-phase step on a phase-to-neutral branch stays on its phase. The
  * fixed part is always connected, so it is not a switched step; steps on a
  * line-to-line branch alone have no single-phase channel here and are reported
- * back as not simulated.
+ * back as not simulated. The controller keeps the study's PF band: the
+ * upper limit (or unity where leading is not allowed) bounds what it switches in.
  */
 import type { BankStep, ControllerSettings } from '../correction/correctionResult.js';
 import type { SwitchedStep, SwitchingSettings } from './bankController.js';
@@ -17,27 +18,28 @@ import type { SwitchedStep, SwitchingSettings } from './bankController.js';
 export interface SwitchingFromBank {
   readonly steps: readonly SwitchedStep[];
   readonly settings: SwitchingSettings;
-  /** Fixed part, kvar at nominal voltage (always on). */
+  /** Fixed part, kvar at nominal voltage (always on): the total, and its parts by channel for simulateBank. */
   readonly fixedKvar: number;
+  readonly fixed: readonly SwitchedStep[];
   /** Controller outputs of steps the simulator cannot place (line-to-line single steps). */
   readonly notSimulated: readonly number[];
+  /** Fixed kvar on line-to-line single branches, which the simulator cannot place either. */
+  readonly fixedNotSimulatedKvar: number;
 }
 
 export function switchingFromBank(steps: readonly BankStep[], controller: ControllerSettings): SwitchingFromBank {
   const out: SwitchedStep[] = [];
+  const fixed: SwitchedStep[] = [];
   const notSimulated: number[] = [];
   let fixedKvar = 0;
+  let fixedNotSimulatedKvar = 0;
   for (const s of steps) {
-    if (s.part === 'fixed' || s.output === null) {
-      fixedKvar += s.kvarAtNominalV;
-      continue;
-    }
-    if (s.kind === 'three-phase') out.push({ kvar: s.kvarAtNominalV, channel: 'ABC' });
-    else {
-      const m = /^([ABC])-N$/.exec(s.branches[0] ?? '');
-      if (m && s.branches.length === 1) out.push({ kvar: s.kvarAtNominalV, channel: m[1] as 'A' | 'B' | 'C' });
-      else notSimulated.push(s.output);
-    }
+    const always = s.part === 'fixed' || s.output === null;
+    if (always) fixedKvar += s.kvarAtNominalV;
+    const channel = s.kind === 'three-phase' ? 'ABC' : s.branches.length === 1 ? /^([ABC])-N$/.exec(s.branches[0] ?? '')?.[1] : undefined;
+    if (channel) (always ? fixed : out).push({ kvar: s.kvarAtNominalV, channel: channel as SwitchedStep['channel'], ...(s.output !== null ? { output: s.output } : {}) });
+    else if (always) fixedNotSimulatedKvar += s.kvarAtNominalV;
+    else notSimulated.push(s.output!);
   }
   return {
     steps: out,
@@ -46,8 +48,12 @@ export function switchingFromBank(steps: readonly BankStep[], controller: Contro
       responseShare: controller.settingFraction,
       delaySeconds: controller.switchingDelayS,
       reconnectSeconds: controller.reconnectionDelayS,
+      // The band's upper edge; with no upper PF given, unity unless the study allowed leading.
+      ...(controller.targetBand.maxPf !== null ? { upperPf: controller.targetBand.maxPf } : controller.targetBand.leadingAllowed ? {} : { upperPf: 1 }),
     },
     fixedKvar,
+    fixed,
     notSimulated,
+    fixedNotSimulatedKvar,
   };
 }

@@ -1,5 +1,6 @@
 /**
- * Board + resolved study → the numeric assignment problem (assignmentProblem.ts).
+ * Installation (a single board is one with one board) + resolved study → the
+ * numeric assignment problem (assignmentProblem.ts).
  *
  * The scoring model is the fast one: a stiff, balanced supply at nominal
  * voltage, each circuit drawing I = conj(S / V) for its complex rating S (its
@@ -10,18 +11,29 @@
  * V2 = E2 − Z·I2 with Z the source and feeder impedance per line (the neutral
  * path carries only zero sequence, so it does not enter V2). The final
  * answer is always re-solved by the network solver.
+ *
+ * On an installation the quantities are read at each measured board's incomer:
+ * the sum of the currents drawn on that board and every board it feeds (the
+ * feeders change with every move below them). V2 at a board subtracts the drop
+ * of each feeder on its path, each carrying the I2 of what it feeds.
  */
-import type { Board } from '../board/boardModel.js';
+import type { Board, BoardLoad } from '../board/boardModel.js';
 import type { ConnectionSpec } from '../board/boardSchema.js';
-import { A_OPERATOR, A_SQUARED, abs, add, complex, conj, div, mul, polar, scale, sub, type ComplexValue } from '../complex.js';
+import { A_OPERATOR, A_SQUARED, abs, add, complex, conj, div, mul, polar, scale, sub, ZERO, type ComplexValue } from '../complex.js';
 import { sequenceComponents } from '../analysis/symmetricalComponents.js';
 import { MAX_OPTIONS, type AssignmentProblem } from './assignmentProblem.js';
 import { builtInMagnitudeScore, magnitudeScore, type ConditionLayout, type RebalanceObjective } from './rebalanceObjective.js';
 import { connectionChoices, type ResolvedRebalance } from './rebalanceRules.js';
+import { isUnder, loadOf, pathTo, type RebalanceTree } from './rebalanceTree.js';
 
 /** A circuit the search may place, with the connections it may take. */
 export interface CircuitSlot {
-  /** Index of the load in the board (and the board file's `loads`). */
+  /** Flat circuit index in the installation (rebalanceTree.ts). */
+  readonly flat: number;
+  /** Board number and name. */
+  readonly board: number;
+  readonly boardName: string;
+  /** Index of the load in its board (and in that board's `loads` in the file). */
   readonly loadIndex: number;
   readonly name: string;
   readonly present: ConnectionSpec;
@@ -32,7 +44,7 @@ export interface BuiltProblem {
   readonly problem: AssignmentProblem;
   readonly slots: readonly CircuitSlot[];
   readonly layouts: readonly ConditionLayout[];
-  /** Line currents (phase order) of the loads that cannot move, per condition, A — for messages. */
+  /** Line currents (phase order) of the loads that cannot move, per layout (condition × measured board), A — for messages. */
   readonly fixedLineA: readonly (readonly number[])[];
   /**
    * The one quantity the score reads, when it reads only one (a built-in aim of just the neutral,
@@ -64,14 +76,14 @@ function connectionLineCurrents(board: Board, v: readonly ComplexValue[], connec
 }
 
 /** Line currents of a fixed load (any shape) in the scoring model: its branches at nominal voltage. */
-function fixedLoadLineCurrents(board: Board, v: readonly ComplexValue[], loadIndex: number, factor: number): ComplexValue[] {
+function fixedLoadLineCurrents(board: Board, v: readonly ComplexValue[], load: BoardLoad, factor: ComplexValue): ComplexValue[] {
   const out = board.phases.map(() => complex(0, 0));
   const voltage = (t: string) => {
     const k = board.phases.indexOf(t as 'A');
     return k >= 0 ? v[k]! : complex(0, 0); // N and a balanced star point sit at 0
   };
-  for (const b of board.loads[loadIndex]!.branches) {
-    const current = conj(div(scale(b.sNominal, factor), sub(voltage(b.from), voltage(b.to))));
+  for (const b of load.branches) {
+    const current = conj(div(mul(b.sNominal, factor), sub(voltage(b.from), voltage(b.to))));
     const f = board.phases.indexOf(b.from as 'A');
     const t = board.phases.indexOf(b.to as 'A');
     if (f >= 0) out[f] = add(out[f]!, current);
@@ -80,144 +92,150 @@ function fixedLoadLineCurrents(board: Board, v: readonly ComplexValue[], loadInd
   return out;
 }
 
+interface QuantityRow {
+  /** Coefficients on a board's line currents (phase order). */
+  readonly weights: readonly ComplexValue[];
+  /** Multiplier of the currents drawn on each board (0 for boards outside the measured incomer). */
+  readonly perBoard: readonly ComplexValue[];
+  readonly condition: number;
+  readonly constant: ComplexValue;
+}
+
 /**
  * @param objective a caller's score; the built-in weighted score when absent.
  */
-export function buildAssignmentProblem(board: Board, study: ResolvedRebalance, objective?: RebalanceObjective): BuiltProblem {
+export function buildAssignmentProblem(tree: RebalanceTree, study: ResolvedRebalance, objective?: RebalanceObjective): BuiltProblem {
+  const board = tree.boards[0]!;
   const v = nominalPhaseVoltages(board);
   const lines = board.phases.length;
   const threePhase = lines === 3;
   const wantVoltage = threePhase && study.aim.voltageUnbalance > 0;
-
-  // Quantity rows: coefficients on the line currents, per condition.
-  const rows: ComplexValue[][] = [];
-  const layouts: ConditionLayout[] = [];
   const [ab, ac] = board.sequence === 'ABC' ? [A_OPERATOR, A_SQUARED] : [A_SQUARED, A_OPERATOR];
   const negativeRow = threePhase ? [complex(1 / 3), scale(ac, 1 / 3), scale(ab, 1 / 3)] : [];
-  const seriesZ = add(board.sourceImpedance, board.lineImpedance);
   const emfSeq = threePhase ? sequenceComponents(board.emf as [ComplexValue, ComplexValue, ComplexValue], board.sequence) : null;
-  const voltageConstants: { index: number; value: ComplexValue }[] = [];
+  const unit = board.phases.map((_, k) => board.phases.map((__, x) => complex(x === k ? 1 : 0)));
+  const ones = board.phases.map(() => complex(1));
+  const under = (p: number) => tree.boards.map((_, x) => complex(isUnder(tree, x, p) ? 1 : 0));
+  /** −(series impedance of the path into `p` that carries a current drawn on each board). */
+  const dropInto = (p: number) =>
+    tree.boards.map((_, x) => scale(pathTo(tree, p).reduce((z, k) => (isUnder(tree, x, k) ? add(z, tree.seriesZ[k]!) : z), ZERO), -1));
 
   const slots: CircuitSlot[] = [];
-  board.loads.forEach((load, i) => {
+  tree.circuits.forEach((ref, flat) => {
+    const load = loadOf(tree, flat);
     if (load.origin !== 'board' || load.branches.length !== 1) return;
-    const pin = study.pinned.get(i);
+    const pin = study.pinned.get(flat);
+    if (pin === undefined && !study.movableBoards[ref.board]) return;
     const choices = connectionChoices(board, load.connection);
     if (choices.length < 2 && pin === undefined) return;
     if (pin !== undefined && pin === load.connection) return; // stays: part of the fixed load
-    slots.push({ loadIndex: i, name: load.name, present: load.connection, options: pin !== undefined ? [pin] : choices });
+    slots.push({
+      flat,
+      board: ref.board,
+      boardName: tree.names[ref.board]!,
+      loadIndex: ref.load,
+      name: load.name,
+      present: load.connection,
+      options: pin !== undefined ? [pin] : choices,
+    });
   });
-  const movable = new Set(slots.map((s) => s.loadIndex));
+  const movable = new Set(slots.map((s) => s.flat));
 
-  // Per condition: line currents of the fixed loads, and of each slot option.
-  const fixedLineA: number[][] = [];
-  const fixedByCondition: ComplexValue[][] = [];
+  // Per condition: each board's line currents of the loads that cannot move, and of each slot option.
+  const fixedByCondition: ComplexValue[][][] = []; // [condition][board][line]
   const slotCurrents: ComplexValue[][][][] = slots.map(() => []); // [slot][option][condition][line]
   study.conditions.forEach((condition) => {
-    let fixed = board.phases.map(() => complex(0, 0));
-    board.loads.forEach((_, i) => {
-      if (movable.has(i)) return;
-      const currents = fixedLoadLineCurrents(board, v, i, condition.factors[i]!);
-      fixed = fixed.map((x, k) => add(x, currents[k]!));
+    const fixed = tree.boards.map(() => board.phases.map(() => ZERO));
+    tree.circuits.forEach((ref, flat) => {
+      if (movable.has(flat)) return;
+      const currents = fixedLoadLineCurrents(board, v, loadOf(tree, flat), condition.factors[flat]!);
+      fixed[ref.board] = fixed[ref.board]!.map((x, k) => add(x, currents[k]!));
     });
     fixedByCondition.push(fixed);
-    fixedLineA.push(fixed.map(abs));
     slots.forEach((slot, s) => {
-      const rating = scale(board.loads[slot.loadIndex]!.branches[0]!.sNominal, condition.factors[slot.loadIndex]!);
+      const rating = mul(loadOf(tree, slot.flat).branches[0]!.sNominal, condition.factors[slot.flat]!);
       slot.options.forEach((option, k) => {
         (slotCurrents[s]![k] ??= []).push(connectionLineCurrents(board, v, option, rating));
       });
     });
   });
 
+  const rows: QuantityRow[] = [];
+  const layouts: ConditionLayout[] = [];
+  const fixedLineA: number[][] = [];
   study.conditions.forEach((condition, c) => {
-    const first = rows.length;
-    const lineIdx = board.phases.map((_, k) => {
-      rows.push(board.phases.map((__, x) => complex(x === k ? 1 : 0)));
-      return first + k;
-    });
-    let neutral = -1;
-    if (board.hasNeutral && lines > 1) {
-      neutral = rows.length;
-      rows.push(board.phases.map(() => complex(1)));
-    }
-    let negative = -1;
-    if (threePhase) {
-      negative = rows.length;
-      rows.push(negativeRow);
-    }
-    // Every assignment draws the same total; take the present one to read the fixed parts.
-    const total = board.phases.map((_, k) => {
-      let x = fixedByCondition[c]![k]!;
+    // Every assignment draws the same positive-sequence current on each board; read it at the present wiring.
+    const drawn = tree.boards.map((_, b) => {
+      let x = fixedByCondition[c]![b]!;
       slots.forEach((slot, s) => {
-        const present = slot.options.indexOf(slot.present);
-        x = add(x, slotCurrents[s]![Math.max(present, 0)]![c]![k]!);
+        if (slot.board !== b) return;
+        const present = Math.max(slot.options.indexOf(slot.present), 0);
+        x = x.map((y, k) => add(y, slotCurrents[s]![present]![c]![k]!));
       });
       return x;
     });
-    let positiveA = 0;
-    let balancedA = 0;
-    let positiveV = board.nominalLineToNeutralV;
-    let voltageNegative = -1;
-    if (threePhase) {
-      const seq = sequenceComponents(total as [ComplexValue, ComplexValue, ComplexValue], board.sequence);
-      positiveA = abs(seq.positive);
-      balancedA = positiveA;
-      positiveV = abs(sub(emfSeq!.positive, mul(seriesZ, seq.positive)));
-      if (wantVoltage) {
-        voltageNegative = rows.length;
-        rows.push(negativeRow.map((x) => scale(mul(seriesZ, x), -1)));
-        voltageConstants.push({ index: voltageNegative, value: emfSeq!.negative });
+    const sumUnder = (p: number, per: readonly ComplexValue[][]) =>
+      board.phases.map((_, k) => per.reduce((t, x, b) => (isUnder(tree, b, p) ? add(t, x[k]!) : t), ZERO));
+    const positiveInto = (p: number) =>
+      threePhase ? sequenceComponents(sumUnder(p, drawn) as [ComplexValue, ComplexValue, ComplexValue], board.sequence).positive : ZERO;
+    for (const p of study.measuredBoards) {
+      const perBoard = under(p);
+      const lineIdx = board.phases.map((_, k) => rows.push({ weights: unit[k]!, perBoard, condition: c, constant: ZERO }) - 1);
+      const neutral = board.hasNeutral && lines > 1 ? rows.push({ weights: ones, perBoard, condition: c, constant: ZERO }) - 1 : -1;
+      const negative = threePhase ? rows.push({ weights: negativeRow, perBoard, condition: c, constant: ZERO }) - 1 : -1;
+      const total = sumUnder(p, drawn);
+      let positiveA = 0;
+      let balancedA: number;
+      let positiveV = board.nominalLineToNeutralV;
+      let voltageNegative = -1;
+      if (threePhase) {
+        positiveA = abs(positiveInto(p));
+        balancedA = positiveA;
+        positiveV = abs(pathTo(tree, p).reduce((e, k) => sub(e, mul(tree.seriesZ[k]!, positiveInto(k))), emfSeq!.positive));
+        if (wantVoltage) voltageNegative = rows.push({ weights: negativeRow, perBoard: dropInto(p), condition: c, constant: emfSeq!.negative }) - 1;
+      } else if (lines === 2) {
+        balancedA = abs(scale(sub(total[0]!, total[1]!), 0.5));
+      } else {
+        balancedA = abs(total[0]!);
       }
-    } else if (lines === 2) {
-      balancedA = abs(scale(sub(total[0]!, total[1]!), 0.5));
-    } else {
-      balancedA = abs(total[0]!);
+      fixedLineA.push(sumUnder(p, fixedByCondition[c]!).map(abs));
+      layouts.push({
+        name: condition.name,
+        board: tree.names[p]!,
+        condition: c,
+        weight: condition.weight,
+        lines: lineIdx,
+        neutral,
+        negative,
+        voltageNegative,
+        balancedA,
+        neutralShare: threePhase ? 1 / 3 : 0.5,
+        positiveA,
+        positiveV,
+      });
     }
-    layouts.push({
-      name: condition.name,
-      weight: condition.weight,
-      lines: lineIdx,
-      neutral,
-      negative,
-      voltageNegative,
-      balancedA,
-      neutralShare: threePhase ? 1 / 3 : 0.5,
-      positiveA,
-      positiveV,
-    });
   });
 
-  // Rows of each condition act on that condition's line currents only.
-  const conditionOfRow: number[] = [];
-  layouts.forEach((l, c) => {
-    const end = c + 1 < layouts.length ? layouts[c + 1]!.lines[0]! : rows.length;
-    for (let j = l.lines[0]!; j < end; j++) conditionOfRow[j] = c;
-  });
-  const project = (row: readonly ComplexValue[], currents: readonly ComplexValue[]) => row.reduce((acc, w, k) => add(acc, mul(w, currents[k]!)), complex(0, 0));
+  const project = (row: QuantityRow, b: number, currents: readonly ComplexValue[]) =>
+    mul(row.perBoard[b]!, row.weights.reduce((acc, w, k) => add(acc, mul(w, currents[k]!)), ZERO));
 
   const q = rows.length;
   const base = new Float64Array(2 * q);
   const contributions = new Float64Array(slots.length * MAX_OPTIONS * 2 * q);
   const limits = new Float64Array(q).fill(Infinity);
   rows.forEach((row, j) => {
-    const c = conditionOfRow[j]!;
-    const value = project(row, fixedByCondition[c]!);
+    const value = tree.boards.reduce((t, _, b) => add(t, project(row, b, fixedByCondition[row.condition]![b]!)), row.constant);
     base[2 * j] = value.re;
     base[2 * j + 1] = value.im;
     slots.forEach((slot, s) =>
       slot.options.forEach((_, k) => {
-        const x = project(row, slotCurrents[s]![k]![c]!);
+        const x = project(row, slot.board, slotCurrents[s]![k]![row.condition]!);
         const at = (s * MAX_OPTIONS + k) * 2 * q + 2 * j;
         contributions[at] = x.re;
         contributions[at + 1] = x.im;
       }),
     );
   });
-  for (const { index, value } of voltageConstants) {
-    base[2 * index]! += value.re;
-    base[2 * index + 1]! += value.im;
-  }
   layouts.forEach((l) => l.lines.forEach((j, k) => (limits[j] = study.lineCapacityA[k]!)));
 
   const score = objective
@@ -242,4 +260,3 @@ export function buildAssignmentProblem(board: Board, study: ResolvedRebalance, o
   }
   return { problem, slots, layouts, fixedLineA, singleQuantity };
 }
-

@@ -5,9 +5,14 @@
  */
 import type { AimFigure } from './rebalanceSpec.js';
 
-/** Where each condition's quantities sit in the problem's quantity list. */
+/** Where the quantities of one condition at one measured board sit in the problem's quantity list. */
 export interface ConditionLayout {
+  /** The condition's name. */
   readonly name: string;
+  /** The board whose incomer the quantities are read at. */
+  readonly board: string;
+  /** Index of the condition (layouts of one condition share it). */
+  readonly condition: number;
   readonly weight: number;
   /** Quantity index of each line current, in the board's phase order. */
   readonly lines: readonly number[];
@@ -33,9 +38,16 @@ export interface ConditionLayout {
   readonly positiveV: number;
 }
 
-/** The figures of one condition that a score may weigh; null where the board has no such figure. */
+/**
+ * The figures of one condition at one board's incomer that a score may weigh;
+ * null where the board has no such figure. On an installation a score sees one
+ * entry per condition and measured board.
+ */
 export interface ConditionFigures {
+  /** The condition's name. */
   readonly name: string;
+  /** The board whose incomer these figures are read at. */
+  readonly board: string;
   /** Line current magnitudes, A, in the board's phase order. */
   readonly lineA: readonly number[];
   readonly largestLineA: number;
@@ -64,6 +76,7 @@ export function conditionFigures(layout: ConditionLayout, m: Float64Array): Cond
   largest = Math.max(largest, Math.sqrt(square));
   return {
     name: layout.name,
+    board: layout.board,
     lineA,
     largestLineA: largest,
     neutralA: layout.neutral >= 0 ? m[layout.neutral]! : null,
@@ -94,17 +107,25 @@ export function conditionScore(f: ConditionFigures, aim: AimWeights): number {
   return s;
 }
 
-/** The built-in score: per condition the weighted figures, then the worst condition or the weighted mean. */
+/** Total weight of the conditions (each counted once, however many boards are measured). */
+const conditionWeight = (layouts: readonly ConditionLayout[]) =>
+  layouts.reduce((s, l, k) => (k === 0 || layouts[k - 1]!.condition !== l.condition ? s + l.weight : s), 0);
+
+/**
+ * The built-in score: per condition the weighted figures, added over the measured
+ * boards, then the worst condition or the weighted mean of conditions.
+ */
 export function builtInObjective(aim: AimWeights, combine: 'worst' | 'weighted', layouts: readonly ConditionLayout[]): RebalanceObjective {
-  const totalWeight = layouts.reduce((s, l) => s + l.weight, 0);
-  return (conditions) => {
+  const totalWeight = conditionWeight(layouts);
+  return (figures) => {
+    const perCondition = new Map<number, number>();
+    figures.forEach((f, k) => perCondition.set(layouts[k]!.condition, (perCondition.get(layouts[k]!.condition) ?? 0) + conditionScore(f, aim)));
     let worst = 0;
     let mean = 0;
-    conditions.forEach((f, c) => {
-      const s = conditionScore(f, aim);
+    for (const [c, s] of perCondition) {
       worst = Math.max(worst, s);
-      mean += (layouts[c]!.weight * s) / totalWeight;
-    });
+      mean += (layouts.find((l) => l.condition === c)!.weight * s) / totalWeight;
+    }
     return combine === 'worst' ? worst : mean;
   };
 }
@@ -120,12 +141,12 @@ export function magnitudeScore(objective: RebalanceObjective, layouts: readonly 
  * `magnitudeScore(builtInObjective(...))` (a test holds them together).
  */
 export function builtInMagnitudeScore(aim: AimWeights, combine: 'worst' | 'weighted', layouts: readonly ConditionLayout[]): (m: Float64Array) => number {
-  const totalWeight = layouts.reduce((s, l) => s + l.weight, 0);
+  const totalWeight = conditionWeight(layouts);
   const wLine = aim.largestLine;
   const wNeutral = aim.neutral;
   const wCurrent = aim.currentUnbalance;
   const wVoltage = aim.voltageUnbalance;
-  const plan = layouts.map((l) => ({
+  const plan = layouts.map((l, k) => ({
     lines: Int32Array.from(l.lines),
     neutral: l.neutral,
     negative: l.negative,
@@ -135,13 +156,15 @@ export function builtInMagnitudeScore(aim: AimWeights, combine: 'worst' | 'weigh
     perCurrent: 100 / Math.max(l.positiveA, 1e-12),
     perVoltage: 100 / Math.max(l.positiveV, 1e-12),
     share: l.weight / totalWeight,
+    // Layouts of one condition are adjacent; the last one closes the condition's sum.
+    closes: k + 1 === layouts.length || layouts[k + 1]!.condition !== l.condition,
   }));
   return (m) => {
     let worst = 0;
     let mean = 0;
+    let s = 0;
     for (let k = 0; k < plan.length; k++) {
       const c = plan[k]!;
-      let s = 0;
       const neutral = c.neutral >= 0 ? m[c.neutral]! : 0;
       const negative = c.negative >= 0 ? m[c.negative]! : 0;
       if (wLine > 0) {
@@ -154,8 +177,10 @@ export function builtInMagnitudeScore(aim: AimWeights, combine: 'worst' | 'weigh
       if (wNeutral > 0) s += wNeutral * neutral;
       if (wCurrent > 0) s += wCurrent * negative * c.perCurrent;
       if (wVoltage > 0 && c.voltageNegative >= 0) s += wVoltage * m[c.voltageNegative]! * c.perVoltage;
+      if (!c.closes) continue;
       if (s > worst) worst = s;
       mean += c.share * s;
+      s = 0;
     }
     return combine === 'worst' ? worst : mean;
   };

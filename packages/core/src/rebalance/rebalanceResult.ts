@@ -7,15 +7,21 @@ import type { AimWeights, ConditionFigures } from './rebalanceObjective.js';
 
 /** One line of the work order. */
 export interface CircuitMove {
-  /** Position of the circuit in the board file's `loads` list, counted from 1. */
+  /** The board the circuit is on. */
+  readonly board: string;
+  /** Position of the circuit in its board's `loads` list in the file, counted from 1. */
   readonly circuit: number;
   readonly name: string;
   readonly from: ConnectionSpec;
   readonly to: ConnectionSpec;
 }
 
+/** One condition read at one measured board's incomer (a single board: its incomer). */
 export interface ConditionComparison {
+  /** The condition's name. */
   readonly name: string;
+  /** The board whose incomer the figures are read at. */
+  readonly board: string;
   readonly weight: number;
   /** The fast scoring model (stiff balanced supply, currents at nominal voltage). */
   readonly model: { readonly before: ConditionFigures; readonly after: ConditionFigures };
@@ -38,8 +44,30 @@ export interface MoveTableRow {
   readonly withinCapacity: boolean;
 }
 
+/** A board the score does not read, solved before and after all the same (installations only). */
+export interface UnmeasuredBoardComparison {
+  readonly name: string;
+  readonly board: string;
+  readonly weight: number;
+  readonly before: ConditionFigures;
+  readonly after: ConditionFigures;
+}
+
+/** A line of the answer above its capacity (fast model), when no answer within the move limit keeps every line within. */
+export interface CapacityExcess {
+  readonly board: string;
+  readonly condition: string;
+  readonly line: 'A' | 'B' | 'C';
+  readonly currentA: number;
+  readonly capacityA: number;
+  readonly overA: number;
+}
+
 export interface RebalanceReport {
+  /** The board, or the installation (its name) when it has several boards. */
   readonly board: { readonly name: string; readonly system: string };
+  /** Every board (main board first, then the file's order), those whose circuits could move, and those whose incomers the score reads. */
+  readonly boards: { readonly all: readonly string[]; readonly movable: readonly string[]; readonly measured: readonly string[] };
   /** The weights of the built-in score, or `custom` for a caller's objective. */
   readonly aim: AimWeights | 'custom';
   readonly combine: 'worst' | 'weighted';
@@ -59,7 +87,12 @@ export interface RebalanceReport {
   /** The same score computed from the network-solved figures. */
   readonly solvedScore: { readonly before: number; readonly after: number };
   readonly moves: readonly CircuitMove[];
+  /** One per load condition and measured board, conditions in order. */
   readonly conditions: readonly ConditionComparison[];
+  /** Installations: the boards the score does not read, network-solved before and after. */
+  readonly otherBoards: readonly UnmeasuredBoardComparison[];
+  /** Lines over capacity in the answer, worst first; empty when every line is within. */
+  readonly capacityExceeded: readonly CapacityExcess[];
   readonly moveTable: readonly MoveTableRow[] | null;
   /** Fewest-moves mode: the % asked for and the best score it was measured from. */
   readonly nearBest: { readonly percent: number; readonly bestScore: number } | null;

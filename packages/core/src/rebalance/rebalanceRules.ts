@@ -8,7 +8,10 @@ import type { Board } from '../board/boardModel.js';
 import type { ConnectionSpec } from '../board/boardSchema.js';
 import { InputError, inputIssue, type InputIssue } from '../errors.js';
 import { inputIssuesFromZod } from '../_internal/zodIssues.js';
-import { rebalanceSpecSchema, type RebalanceSpec } from './rebalanceSpec.js';
+import { complex, type ComplexValue } from '../complex.js';
+import type { ProfileSpec } from '../profile/profileSpec.js';
+import { rebalanceSpecSchema, type LoadConditionSpec, type RebalanceSpec } from './rebalanceSpec.js';
+import { loadOf, type RebalanceTree } from './rebalanceTree.js';
 import type { AimWeights } from './rebalanceObjective.js';
 
 export const LINE_TO_NEUTRAL: readonly ConnectionSpec[] = ['A-N', 'B-N', 'C-N'];
@@ -28,8 +31,8 @@ export function connectionChoices(board: Board, connection: ConnectionSpec): rea
 export interface ResolvedCondition {
   readonly name: string;
   readonly weight: number;
-  /** Fraction of each board load (by load index) running in this condition. */
-  readonly factors: readonly number[];
+  /** Complex multiplier of each circuit's rating (by flat circuit index) in this condition. */
+  readonly factors: readonly ComplexValue[];
 }
 
 export interface ResolvedRebalance {
@@ -38,13 +41,22 @@ export interface ResolvedRebalance {
   /** Most moves; `Infinity` for no limit. */
   readonly moveLimit: number;
   readonly nearBestPercent: number | null;
-  /** Load index → the connection it must end on (its present one for a plain pin). */
+  /** Flat circuit index → the connection it must end on (its present one for a plain pin). */
   readonly pinned: ReadonlyMap<number, ConnectionSpec>;
-  /** Capacity of each line in `board.phases` order, A (Infinity where none). */
+  /** Capacity of each line in `phases` order, A (Infinity where none). */
   readonly lineCapacityA: readonly number[];
   /** Where the capacity was given, for messages: `lineCapacityA` or `lineCapacityA.B`. */
   readonly capacityPaths: readonly string[];
   readonly conditions: readonly ResolvedCondition[];
+  /** Per board number: may its circuits move. */
+  readonly movableBoards: readonly boolean[];
+  /** Board numbers whose incomer the score reads (a single board: [0]). */
+  readonly measuredBoards: readonly number[];
+}
+
+/** What the study may need from outside its own section: the file's profile scenarios. */
+export interface RebalanceContext {
+  readonly profile?: ProfileSpec | undefined;
 }
 
 /** Default aim: the largest line current, plus the neutral current where the board has a neutral. */
@@ -52,23 +64,53 @@ function defaultAim(board: Board): AimWeights {
   return { largestLine: 1, neutral: board.hasNeutral ? 1 : 0, currentUnbalance: 0, voltageUnbalance: 0 };
 }
 
-function pinIssues(spec: RebalanceSpec, board: Board, pinned: Map<number, ConnectionSpec>): InputIssue[] {
+/** Circuit names → flat indices; a name on several boards is also reachable as "board/circuit". */
+function circuitFinder(tree: RebalanceTree) {
+  const byName = new Map<string, number[]>();
+  const qualified = new Map<string, number>();
+  tree.circuits.forEach((ref, flat) => {
+    const load = tree.boards[ref.board]!.loads[ref.load]!;
+    if (load.origin !== 'board') return;
+    byName.set(load.name, [...(byName.get(load.name) ?? []), flat]);
+    qualified.set(`${tree.names[ref.board]}/${load.name}`, flat);
+  });
+  const several = tree.boards.length > 1;
+  const accepted = several ? 'the name of a circuit in the installation, or "board/circuit"' : 'the name of a circuit on the board';
+  /** A flat index, or an issue at `path`. */
+  return (name: string, path: string, board?: string): number | InputIssue => {
+    if (board !== undefined) {
+      const flat = qualified.get(`${board}/${name}`);
+      if (flat !== undefined) return flat;
+      if (!tree.names.includes(board)) return inputIssue('unknown_board', path.replace(/circuit$/, 'board'), `one of ${tree.names.join(', ')}`, board);
+      return inputIssue('unknown_circuit', path, `the name of a circuit on board "${board}"`, name);
+    }
+    const found = byName.get(name);
+    if (found?.length === 1) return found[0]!;
+    if (found && found.length > 1)
+      return inputIssue('ambiguous_circuit', path, `one circuit: "${name}" is on boards ${found.map((f) => tree.names[tree.circuits[f]!.board]).join(', ')}; name the board too`, name);
+    const flat = qualified.get(name);
+    return flat ?? inputIssue('unknown_circuit', path, accepted, name);
+  };
+}
+
+function pinIssues(spec: RebalanceSpec, tree: RebalanceTree, pinned: Map<number, ConnectionSpec>): InputIssue[] {
   const issues: InputIssue[] = [];
-  const byName = new Map(board.loads.map((l, i) => [l.name, i] as const));
+  const board = tree.boards[0]!;
+  const find = circuitFinder(tree);
   (spec.pinned ?? []).forEach((entry, n) => {
     const name = typeof entry === 'string' ? entry : entry.circuit;
     const path = typeof entry === 'string' ? `pinned[${n}]` : `pinned[${n}].circuit`;
-    const index = byName.get(name);
-    if (index === undefined || board.loads[index]!.origin !== 'board') {
-      issues.push(inputIssue('unknown_circuit', path, 'the name of a circuit on the board', name));
+    const index = find(name, path, typeof entry === 'string' ? undefined : entry.board);
+    if (typeof index !== 'number') {
+      issues.push(index);
       return;
     }
     if (pinned.has(index)) {
       issues.push(inputIssue('duplicate', path, 'each circuit pinned once', name));
       return;
     }
-    const present = board.loads[index]!.connection;
-    if (typeof entry === 'string') {
+    const present = loadOf(tree, index).connection;
+    if (typeof entry === 'string' || entry.on === undefined) {
       pinned.set(index, present);
       return;
     }
@@ -96,19 +138,36 @@ function pinIssues(spec: RebalanceSpec, board: Board, pinned: Map<number, Connec
   return issues;
 }
 
-function conditionIssues(spec: RebalanceSpec, board: Board, out: ResolvedCondition[]): InputIssue[] {
+/** The profile section's scenarios as load conditions: each weighted by its hours (or weight), groups expanded. */
+export function conditionsFromScenarios(profile: ProfileSpec): LoadConditionSpec[] {
+  const groups = profile.groups ?? {};
+  return (profile.scenarios ?? []).map((s) => {
+    const circuits: Record<string, number> = {};
+    for (const [name, f] of Object.entries(s.loads)) for (const member of groups[name] ?? [name]) circuits[member] = f;
+    return { name: s.name, weight: s.hours ?? s.weight ?? 1, factor: s.others ?? 0, circuits };
+  });
+}
+
+function conditionIssues(spec: RebalanceSpec, tree: RebalanceTree, context: RebalanceContext, out: ResolvedCondition[]): InputIssue[] {
   const issues: InputIssue[] = [];
-  const byName = new Map(board.loads.map((l, i) => [l.name, i] as const));
-  const given = spec.conditions ?? [{ name: 'as rated' }];
+  const find = circuitFinder(tree);
+  let given: readonly LoadConditionSpec[] = [{ name: 'as rated' }];
+  let where = 'conditions';
+  if (spec.conditions === 'scenarios') {
+    if (!context.profile?.scenarios?.length)
+      return [inputIssue('missing', 'conditions', 'scenarios under profile.scenarios in the board file when conditions is "scenarios"', 'scenarios')];
+    given = conditionsFromScenarios(context.profile);
+    where = 'profile.scenarios';
+  } else if (spec.conditions) given = spec.conditions;
   const names = new Set<string>();
   given.forEach((c, n) => {
-    if (names.has(c.name)) issues.push(inputIssue('duplicate', `conditions[${n}].name`, 'a name not already used by another condition', c.name));
+    if (names.has(c.name)) issues.push(inputIssue('duplicate', `${where}[${n}].name`, 'a name not already used by another condition', c.name));
     names.add(c.name);
-    const factors = board.loads.map((l) => (l.origin === 'board' ? (c.factor ?? 1) : 1));
+    const factors = tree.circuits.map((_, flat) => complex(loadOf(tree, flat).origin === 'board' ? (c.factor ?? 1) : 1));
     for (const [name, f] of Object.entries(c.circuits ?? {})) {
-      const index = byName.get(name);
-      if (index === undefined) issues.push(inputIssue('unknown_circuit', `conditions[${n}].circuits.${name}`, 'the name of a circuit on the board', name));
-      else factors[index] = f;
+      const index = find(name, where === 'conditions' ? `conditions[${n}].circuits.${name}` : `profile.scenarios[${n}].loads.${name}`);
+      if (typeof index !== 'number') issues.push(index);
+      else factors[index] = complex(f);
     }
     out.push({ name: c.name, weight: c.weight ?? 1, factors });
   });
@@ -127,21 +186,51 @@ function capacityIssues(spec: RebalanceSpec, board: Board, capacity: number[], p
     .map((p) => inputIssue('not_applicable', `lineCapacityA.${p}`, `only lines ${board.phases.join(', ')} on a ${board.system} supply`, given[p]));
 }
 
+function boardIssues(spec: RebalanceSpec, tree: RebalanceTree, movable: boolean[], measured: number[]): InputIssue[] {
+  const issues: InputIssue[] = [];
+  const count = tree.boards.length;
+  const accepted = `one of ${tree.names.map((n) => `"${n}"`).join(', ')}`;
+  movable.push(...tree.boards.map(() => spec.boards === undefined));
+  (spec.boards ?? []).forEach((name, n) => {
+    const b = tree.names.indexOf(name);
+    if (b < 0) issues.push(inputIssue('unknown_board', `boards[${n}]`, accepted, name));
+    else movable[b] = true;
+  });
+  const at = spec.measureAt ?? 'each';
+  if (at === 'each') measured.push(...tree.boards.map((_, b) => b));
+  else if (at === 'main') measured.push(0);
+  else {
+    const b = tree.names.indexOf(at);
+    if (b < 0) issues.push(inputIssue('unknown_board', 'measureAt', `"each", "main" or a board name: ${accepted}`, at));
+    else measured.push(b);
+  }
+  if (count === 1 && spec.measureAt === undefined) measured.splice(0, measured.length, 0);
+  return issues;
+}
+
 /**
- * Checks a rebalancing study against its board and fills in the defaults.
- * Paths in the issues are relative to the study (`pinned[1].on`); the CLI
- * restates them under `rebalance.`.
+ * Checks a rebalancing study against its installation (a single board is the
+ * installation with one board) and fills in the defaults. Paths in the issues
+ * are relative to the study (`pinned[1].on`); the CLI restates them under `rebalance.`.
  * @throws {InputError}
  */
-export function resolveRebalanceSpec(input: unknown, board: Board): ResolvedRebalance {
+export function resolveRebalanceSpec(input: unknown, tree: RebalanceTree, context: RebalanceContext = {}): ResolvedRebalance {
   const parsed = rebalanceSpecSchema.safeParse(input ?? {});
   if (!parsed.success) throw new InputError(inputIssuesFromZod(parsed.error.issues, input ?? {}), 'the rebalancing study is not valid');
   const spec = parsed.data;
+  const board = tree.boards[0]!;
   const pinned = new Map<number, ConnectionSpec>();
   const conditions: ResolvedCondition[] = [];
   const capacity: number[] = [];
   const capacityPaths: string[] = [];
-  const issues = [...pinIssues(spec, board, pinned), ...conditionIssues(spec, board, conditions), ...capacityIssues(spec, board, capacity, capacityPaths)];
+  const movableBoards: boolean[] = [];
+  const measuredBoards: number[] = [];
+  const issues = [
+    ...pinIssues(spec, tree, pinned),
+    ...conditionIssues(spec, tree, context, conditions),
+    ...capacityIssues(spec, board, capacity, capacityPaths),
+    ...boardIssues(spec, tree, movableBoards, measuredBoards),
+  ];
   const given = spec.aim ?? {};
   const fallback = defaultAim(board);
   // An aim given in the file replaces the default weights: figures it leaves out weigh 0.
@@ -165,5 +254,7 @@ export function resolveRebalanceSpec(input: unknown, board: Board): ResolvedReba
     lineCapacityA: capacity,
     capacityPaths,
     conditions,
+    movableBoards,
+    measuredBoards,
   };
 }

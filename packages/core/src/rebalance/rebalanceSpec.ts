@@ -21,13 +21,14 @@ export const aimSchema = z
   .describe('what to make small: weights of each figure in the score (default largestLine 1, and neutral 1 where the board has a neutral)');
 
 const pinEntry = z.union([
-  z.string().min(1).describe('a circuit name: it stays where it is'),
+  z.string().min(1).describe('a circuit name (unique in the file): it stays where it is'),
   z
     .strictObject({
       circuit: z.string().min(1).describe('circuit name'),
-      on: z.enum(['A-N', 'B-N', 'C-N', 'A-B', 'B-C', 'C-A']).describe('the connection it must end on'),
+      board: z.string().min(1).optional().describe('the board it is on (needed where several boards have a circuit of that name)'),
+      on: z.enum(['A-N', 'B-N', 'C-N', 'A-B', 'B-C', 'C-A']).optional().describe('the connection it must end on; default where it is now'),
     })
-    .describe('a circuit that must end on the given connection (a forced move when it is elsewhere now)'),
+    .describe('a circuit that stays, or must end on the given connection (a forced move when it is elsewhere now)'),
 ]);
 
 const lineCapacity = z.union([
@@ -43,7 +44,7 @@ export const loadConditionSchema = z
     circuits: z
       .record(z.string(), z.number().min(0))
       .optional()
-      .describe('per-circuit fractions that override factor (0 = off; an exporting circuit keeps its sign)'),
+      .describe('per-circuit fractions that override factor (0 = off; an exporting circuit keeps its sign); key a circuit name, or "board/circuit" where the name is on several boards'),
   })
   .describe('one load condition the circuits are scored under');
 
@@ -62,8 +63,21 @@ export const rebalanceSpecSchema = z
       .optional()
       .describe('fewest-moves mode: the fewest moves whose score is within this % of the best score'),
     pinned: z.array(pinEntry).optional().describe('circuits that must not move, or must end on a given connection'),
-    lineCapacityA: lineCapacity.optional().describe('largest current each line may carry in any condition, A (one number for every line)'),
-    conditions: z.array(loadConditionSchema).min(1).optional().describe('load conditions; default one: every circuit at its rating'),
+    lineCapacityA: lineCapacity.optional().describe('largest current each line may carry in any condition, A (one number for every line), at each board where the score is measured'),
+    conditions: z
+      .union([z.array(loadConditionSchema).min(1), z.literal('scenarios')])
+      .optional()
+      .describe('load conditions, or "scenarios": the profile section\'s scenarios, weighted by their hours; default one: every circuit at its rating'),
+    boards: z
+      .array(z.string().min(1))
+      .min(1)
+      .optional()
+      .describe('installations: the boards whose circuits may move; default every board'),
+    measureAt: z
+      .string()
+      .min(1)
+      .optional()
+      .describe('installations: where the score is measured: "each" (every board\'s incomer, scores added), "main" (the main incomer) or a board name (its incomer and bus voltage); default each'),
   })
   .describe('a rebalancing study for `trivar rebalance` (command-line options override it)');
 

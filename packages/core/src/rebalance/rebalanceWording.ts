@@ -17,7 +17,10 @@ export const REBALANCE_NOTES = {
   budgetReached: (nodes: number) =>
     `The exact search stopped at its budget of ${nodes} nodes; the answer is the best found and its gap comes from the lower bound.`,
   noBound: 'The custom score broke the rule that it never falls when a figure grows, so no lower bound is reported.',
-  capacityNotMet: 'No assignment found keeps every line within its capacity; the answer exceeds it least.',
-  overCapacityNow: (line: string, amps: number, capacity: number, condition: string) =>
-    `The present wiring puts ${amps.toFixed(1)} A on line ${line} in "${condition}", above its ${capacity.toFixed(0)} A capacity.`,
+  capacityNotMet: (moveLimit: number, provenImpossible: boolean, excesses: readonly string[]) =>
+    `${provenImpossible ? 'No assignment' : 'No assignment found'} with at most ${moveLimit} move${moveLimit === 1 ? '' : 's'} keeps every line within its capacity${provenImpossible ? ' (proven by the lower bound)' : ''}; this answer exceeds it least: ${excesses.join('; ')}.`,
+  excess: (e: { board: string; condition: string; line: string; currentA: number; capacityA: number; overA: number }, withBoard: boolean) =>
+    `line ${e.line}${withBoard ? ` at "${e.board}"` : ''} in "${e.condition}" carries ${e.currentA.toFixed(1)} A, ${e.overA.toFixed(1)} A over its ${e.capacityA.toFixed(0)} A capacity`,
+  overCapacityNow: (board: string | null, line: string, amps: number, capacity: number, condition: string) =>
+    `The present wiring puts ${amps.toFixed(1)} A on line ${line}${board ? ` at "${board}"` : ''} in "${condition}", above its ${capacity.toFixed(0)} A capacity.`,
 } as const;

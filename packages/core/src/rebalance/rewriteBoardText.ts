@@ -1,35 +1,64 @@
 /**
- * The board file text with moved circuits on their new connections. YAML keeps
- * its comments, order and layout (the yaml library's document model edits the
- * one field in place); JSON input stays JSON. Pure: the CLI does the writing.
+ * The board or installation file text with moved circuits on their new
+ * connections. YAML keeps its comments, order and layout (the yaml library's
+ * document model edits the one field in place); JSON input stays JSON. Pure:
+ * the CLI does the writing.
  */
-import { isMap, isSeq, parseDocument } from 'yaml';
+import { isMap, isSeq, parseDocument, type YAMLMap } from 'yaml';
 import type { CircuitMove } from './rebalanceResult.js';
 
+type Move = Pick<CircuitMove, 'circuit' | 'name' | 'to'> & { readonly board?: string };
+
+const mismatch = (m: Move) => new Error(`rewriteBoardText: circuit ${m.circuit} is not "${m.name}"${m.board ? ` on board "${m.board}"` : ''} in this text`);
+
+interface JsonBoard {
+  name?: string;
+  loads: { name: string; connection: string }[];
+}
+
+/** The loads list a move refers to: the file's own (a board file) or its board's (an installation file). */
+function jsonLoads(file: JsonBoard & { boards?: JsonBoard[] }, m: Move) {
+  if (!file.boards) return file.loads;
+  const board = file.boards.find((b) => b.name === m.board);
+  if (!board) throw mismatch(m);
+  return board.loads;
+}
+
+function yamlLoads(doc: ReturnType<typeof parseDocument>, m: Move) {
+  const boards = doc.get('boards');
+  if (!isSeq(boards)) return doc.get('loads');
+  const board = boards.items.find((b): b is YAMLMap => isMap(b) && b.get('name') === m.board);
+  if (!board) throw mismatch(m);
+  return board.get('loads');
+}
+
 /**
- * @param text the board file as read (YAML or JSON).
+ * @param text the board or installation file as read (YAML or JSON).
  * @param moves the work order of a rebalancing report.
  * @example
  * rewriteBoardText('loads:\n  - { name: Kettle, connection: A-N, kW: 2 }\n', [{ circuit: 1, name: 'Kettle', from: 'A-N', to: 'B-N' }])
  * //=> 'loads:\n  - { name: Kettle, connection: B-N, kW: 2 }\n'
  */
-export function rewriteBoardText(text: string, moves: readonly CircuitMove[]): string {
+export function rewriteBoardText(text: string, moves: readonly Move[]): string {
   if (/^\s*\{/.test(text)) {
-    const board = JSON.parse(text) as { loads: { name: string; connection: string }[] };
+    const file = JSON.parse(text) as JsonBoard & { boards?: JsonBoard[] };
     for (const m of moves) {
-      const load = board.loads[m.circuit - 1];
-      if (!load || load.name !== m.name) throw new Error(`rewriteBoardText: circuit ${m.circuit} is not "${m.name}" in this text`);
+      const load = jsonLoads(file, m)[m.circuit - 1];
+      if (!load || load.name !== m.name) throw mismatch(m);
       load.connection = m.to;
     }
-    return `${JSON.stringify(board, null, 2)}\n`;
+    return `${JSON.stringify(file, null, 2)}\n`;
   }
   const doc = parseDocument(text);
-  const loads = doc.get('loads');
-  if (!isSeq(loads)) throw new Error('rewriteBoardText: the text has no loads list');
   for (const m of moves) {
+    const loads = yamlLoads(doc, m);
+    if (!isSeq(loads)) throw new Error('rewriteBoardText: the text has no loads list');
     const load = loads.items[m.circuit - 1];
-    if (!isMap(load) || load.get('name') !== m.name) throw new Error(`rewriteBoardText: circuit ${m.circuit} is not "${m.name}" in this text`);
+    if (!isMap(load) || load.get('name') !== m.name) throw mismatch(m);
     load.set('connection', m.to);
   }
   return doc.toString();
 }
+
+/** The same for an installation file (boards: [...]); one function serves both. */
+export const rewriteInstallationText = rewriteBoardText;

@@ -22,6 +22,8 @@ export interface CapacitorOnlyOutcome {
   readonly iterations: number;
   /** True when the no-leading constraints could not all hold and were dropped. */
   readonly leadingConstraintsDropped: boolean;
+  /** True when balance limits were asked for and could not all hold (the objective alone then decides). */
+  readonly balanceConstraintsDropped: boolean;
 }
 
 export interface CapacitorOnlySettings {
@@ -31,6 +33,29 @@ export interface CapacitorOnlySettings {
   readonly lineLowerTan: readonly (number | null)[];
   readonly maxIterations: number;
   readonly convergence: number;
+  /**
+   * Keep |I2| and |I0| within these fractions of the present |I1| where possible (a balance target as
+   * constraints, the objective deciding within them). Each circle is held by an inscribed polygon of
+   * `BALANCE_POLYGON_SIDES` sides on the linearised residual. @defaultValue none
+   */
+  readonly balanceLimits?: { readonly negativeSequence: number; readonly zeroSequence: number | null };
+}
+
+/** Sides of the polygon inscribed in a balance limit's circle: within cos(π/12) = 96.6 % of the radius. */
+const BALANCE_POLYGON_SIDES = 12;
+
+/** Rows `row·y ≥ bound` holding |offset + J·y| (entries a, a+1 of the residual) inside radius t. */
+function circleRows(jy: readonly (readonly number[])[], offset: readonly number[], a: number, t: number): { rows: number[][]; bounds: number[] } {
+  const rows: number[][] = [];
+  const bounds: number[] = [];
+  for (let k = 0; k < BALANCE_POLYGON_SIDES; k++) {
+    const th = (2 * Math.PI * k) / BALANCE_POLYGON_SIDES;
+    const [cx, cy] = [Math.cos(th), Math.sin(th)];
+    // c·(offset + J·y) ≤ t·cos(π/K)  ⇔  (−c·J)·y ≥ c·offset − t·cos(π/K)
+    rows.push(jy[a]!.map((v, i) => -(cx * v + cy * jy[a + 1]![i]!)));
+    bounds.push(cx * offset[a]! + cy * offset[a + 1]! - t * Math.cos(Math.PI / BALANCE_POLYGON_SIDES));
+  }
+  return { rows, bounds };
 }
 
 export function solveCapacitorOnlyCompensator(probe: BoardProbe, bases: ResidualBases, settings: CapacitorOnlySettings): CapacitorOnlyOutcome {
@@ -42,6 +67,7 @@ export function solveCapacitorOnlyCompensator(probe: BoardProbe, bases: Residual
   let iterations = 0;
   let converged = false;
   let dropped = false;
+  let balanceDropped = false;
   while (iterations < settings.maxIterations) {
     iterations++;
     const full = probeJacobian(probe, state, measure, 1e-4 * sb);
@@ -72,7 +98,25 @@ export function solveCapacitorOnlyCompensator(probe: BoardProbe, bases: Residual
       boundRows.push(g);
       boundValues.push(-e);
     });
-    let next = dropped ? null : solveQuadraticProgram({ h, c, rows: [...rows, ...boundRows], bounds: [...bounds, ...boundValues] });
+    const balanceRows: number[][] = [];
+    const balanceBounds: number[] = [];
+    const limits = settings.balanceLimits;
+    if (limits && !balanceDropped) {
+      // Radii in residual units (per unit of the uncorrected |I1|), from the present |I1|.
+      const i1 = state.result.sequences ? Math.hypot(state.result.sequences.current.positive.re, state.result.sequences.current.positive.im) / bases.currentA : 0;
+      const circles = [{ at: 0, t: limits.negativeSequence * i1 }, ...(bases.includeZeroSequence && limits.zeroSequence !== null ? [{ at: 2, t: limits.zeroSequence * i1 }] : [])];
+      for (const circle of circles) {
+        const held = circleRows(jy, offset, circle.at, circle.t);
+        balanceRows.push(...held.rows);
+        balanceBounds.push(...held.bounds);
+      }
+    }
+    let next: number[] | null = null;
+    if (balanceRows.length) {
+      next = solveQuadraticProgram({ h, c, rows: [...rows, ...(dropped ? [] : boundRows), ...balanceRows], bounds: [...bounds, ...(dropped ? [] : boundValues), ...balanceBounds] });
+      if (!next) balanceDropped = true;
+    }
+    if (!next && !dropped) next = solveQuadraticProgram({ h, c, rows: [...rows, ...boundRows], bounds: [...bounds, ...boundValues] });
     if (!next) {
       dropped = dropped || boundRows.length > 0;
       next = solveQuadraticProgram({ h, c, rows, bounds });
@@ -88,5 +132,5 @@ export function solveCapacitorOnlyCompensator(probe: BoardProbe, bases: Residual
   }
   const r = compensatorResidual(state, bases);
   const objective = r.reduce((s, rk, k) => s + settings.weights[k]! * rk * rk, 0);
-  return { state, objective, converged, iterations, leadingConstraintsDropped: dropped };
+  return { state, objective, converged, iterations, leadingConstraintsDropped: dropped, balanceConstraintsDropped: balanceDropped };
 }

@@ -5,6 +5,10 @@
  * reactive power's distance from its target, Q1 − P1·tan φ_target.
  * Bases: I_base = |I1| of the uncorrected board, S_base = 3·V_LN·I_base.
  */
+import type { Board } from '../../board/boardModel.js';
+import type { BoardResult } from '../../analysis/boardResult.js';
+import type { ResolvedTarget } from '../correctionTarget.js';
+import { abs } from '../../complex.js';
 import type { ProbeState } from './boardProbe.js';
 
 export interface ResidualBases {
@@ -30,4 +34,24 @@ export function compensatorResidual(state: ProbeState, bases: ResidualBases): nu
 /** Weights (squared) of the residual entries, in order. */
 export function residualWeights(bases: ResidualBases, w: { negativeSequence: number; zeroSequence: number; reactive: number }): number[] {
   return [w.negativeSequence, w.negativeSequence, ...(bases.includeZeroSequence ? [w.zeroSequence, w.zeroSequence] : []), w.reactive];
+}
+
+const tanOf = (pf: number) => Math.sqrt(1 - pf * pf) / pf;
+
+/**
+ * The bases on the board before correction. The PF target is a lower bound: a board already better
+ * than it keeps its own Q1 (clamped to the upper bound), so nothing adds lagging vars to reach it.
+ */
+export function residualBasesFor(before: BoardResult, board: Board, target: ResolvedTarget, includeZeroSequence: boolean): ResidualBases {
+  const i1 = before.sequences ? abs(before.sequences.current.positive) : 0;
+  const currentA = i1 > 0 ? i1 : 1;
+  const ps0 = before.powerFactor.positiveSequence;
+  const presentTan = ps0 && ps0.kW > 0 ? ps0.kvar / ps0.kW : Infinity;
+  const lowTan = target.leading === 'allowed' ? -tanOf(target.minLeadingPf ?? target.pf) : target.maxLaggingPf !== null ? tanOf(target.maxLaggingPf) : 0;
+  return {
+    currentA,
+    powerKVA: (3 * board.nominalLineToNeutralV * currentA) / 1000,
+    targetTan: Math.min(tanOf(target.pf), Math.max(presentTan, lowTan)),
+    includeZeroSequence,
+  };
 }

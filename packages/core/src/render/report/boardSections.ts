@@ -12,6 +12,7 @@ function impedanceWords(z: NonNullable<BoardBaseSpec['supply']['impedance']>): s
 }
 import type { BoardResult, LoadReading } from '../../analysis/boardResult.js';
 import { fixed } from '../svgText.js';
+import { WARNING_THRESHOLDS } from '../../analysis/boardWarnings.js';
 import { renderPhasorDiagram } from '../renderPhasorDiagram.js';
 import { renderSequenceDiagram } from '../renderSequenceDiagram.js';
 import type { ReportBlock, ReportSection } from './reportDocument.js';
@@ -26,7 +27,7 @@ const SYSTEM_WORDS: Readonly<Record<string, string>> = {
 const pfWords = (pf: number | null, sense: string): string => (pf === null ? '—' : `${fixed(pf, 3)}${sense === 'unity' ? '' : sense === 'lagging' ? ' lag' : ' lead'}`);
 const orDash = (x: number | null | undefined, digits: number): string => (x === null || x === undefined ? '—' : fixed(x, digits));
 
-function conductorWords(line: NonNullable<BoardBaseSpec['feeder']>['line'], feeder?: BoardBaseSpec['feeder']): string {
+export function conductorWords(line: NonNullable<BoardBaseSpec['feeder']>['line'], feeder?: BoardBaseSpec['feeder']): string {
   if (!line) return 'none entered (zero impedance)';
   if (isPerPhaseLine(line)) return (['A', 'B', 'C'] as const).filter((p) => line[p]).map((p) => `${p}: ${conductorWords(line[p], feeder)}`).join('; ');
   const c = line;
@@ -39,9 +40,8 @@ function conductorWords(line: NonNullable<BoardBaseSpec['feeder']>['line'], feed
   return parts.join(', ') || 'zero impedance';
 }
 
-export function installationSection(spec: BoardBaseSpec, result: BoardResult): ReportSection {
-  const b = result.board;
-  const s = spec.supply;
+/** The supply in words: transformer, source impedance, bank or ideal; zero-sequence data when entered. */
+export function sourceWords(s: BoardBaseSpec['supply']): string {
   const base = s.transformer
     ? `transformer ${s.transformer.kVA} kVA, impedance ${s.transformer.impedancePercent} %, X/R ${s.transformer.xOverR}${s.impedance ? `, plus ${impedanceWords(s.impedance)}` : ''}`
     : s.impedance
@@ -51,13 +51,26 @@ export function installationSection(spec: BoardBaseSpec, result: BoardResult): R
         : s.openDelta
           ? `an open delta of two single-phase units (${Object.keys(s.openDelta).join(' and ')})`
           : 'ideal (zero source impedance)';
-  const source = s.zeroSequence ? `${base}; zero-sequence ${s.zeroSequence.r} + j${s.zeroSequence.x} Ω` : base;
-  const items: [string, string][] = [
-    ['Board', b.name],
+  return s.zeroSequence ? `${base}; zero-sequence ${s.zeroSequence.r} + j${s.zeroSequence.x} Ω` : base;
+}
+
+/** System, nominal voltage and frequency of a board, as facts. */
+export function systemFacts(result: BoardResult): [string, string][] {
+  const b = result.board;
+  return [
     ['System', SYSTEM_WORDS[b.system] ?? b.system],
     ['Nominal voltage', `${b.nominalLineToLineV !== null ? `${fixed(b.nominalLineToLineV, 0)} V line-to-line, ` : ''}${fixed(b.nominalLineToNeutralV, 1)} V line-to-neutral`],
-    ...((result.sequences ? [['Frequency and phase sequence', `${b.frequencyHz} Hz, ${b.sequence}`]] : [['Frequency', `${b.frequencyHz} Hz`]]) as [string, string][]),
-    ['Source', source],
+    result.sequences ? ['Frequency and phase sequence', `${b.frequencyHz} Hz, ${b.sequence}`] : ['Frequency', `${b.frequencyHz} Hz`],
+  ];
+}
+
+export function installationSection(spec: BoardBaseSpec, result: BoardResult): ReportSection {
+  const b = result.board;
+  const s = spec.supply;
+  const items: [string, string][] = [
+    ['Board', b.name],
+    ...systemFacts(result),
+    ['Source', sourceWords(s)],
     ['Source voltages', s.emf ? 'unbalanced, as entered per phase' : 'balanced at nominal voltage'],
     ['Feeder, each line', conductorWords(spec.feeder?.line, spec.feeder)],
   ];
@@ -71,10 +84,11 @@ export function installationSection(spec: BoardBaseSpec, result: BoardResult): R
 
 const worstBranch = (l: LoadReading) => l.branches.reduce((w, br) => (br.voltagePercent < w.voltagePercent ? br : w), l.branches[0]!);
 
-export function scheduleSection(spec: BoardBaseSpec, result: BoardResult): ReportSection {
+/** The panel schedule of a board: the circuits of the file (numbers, breakers) with their solved figures. */
+export function scheduleTable(loads: BoardBaseSpec['loads'], result: BoardResult): ReportBlock {
   const boardLoads = result.loads.filter((l) => l.origin === 'board');
   const rows = boardLoads.map((l, k) => {
-    const entered = spec.loads[k];
+    const entered = loads[k];
     const worst = worstBranch(l);
     return [
       entered?.circuit ?? String(k + 1),
@@ -90,34 +104,86 @@ export function scheduleSection(spec: BoardBaseSpec, result: BoardResult): Repor
     ];
   });
   return {
-    id: 'schedule',
-    title: 'Panel schedule',
-    blocks: [
-      {
-        kind: 'table',
-        caption: 'Circuits as solved (kW, kvar and current at the voltage each circuit really gets)',
-        columns: [
-          { label: 'No.' },
-          { label: 'Circuit' },
-          { label: 'Phase' },
-          { label: 'Breaker A', align: 'right' },
-          { label: 'Model' },
-          { label: 'kW', align: 'right' },
-          { label: 'kvar', align: 'right' },
-          { label: 'A', align: 'right' },
-          { label: 'PF', align: 'right' },
-          { label: 'V %nom', align: 'right' },
-        ],
-        rows,
-        note: `A: largest current the circuit draws from one line. V %nom: the lowest voltage across any part of the circuit, % of its nominal voltage.${
-          spec.loads.some((l) => l.breakerA !== undefined || l.circuit !== undefined) ? '' : ' Circuit numbers and breaker ratings come from the circuit and breakerA fields of each load in the board file.'
-        }`,
-      },
+    kind: 'table',
+    caption: 'Circuits as solved (kW, kvar and current at the voltage each circuit really gets)',
+    columns: [
+      { label: 'No.' },
+      { label: 'Circuit' },
+      { label: 'Phase' },
+      { label: 'Breaker A', align: 'right' },
+      { label: 'Model' },
+      { label: 'kW', align: 'right' },
+      { label: 'kvar', align: 'right' },
+      { label: 'A', align: 'right' },
+      { label: 'PF', align: 'right' },
+      { label: 'V %nom', align: 'right' },
     ],
+    rows,
+    note: `A: largest current the circuit draws from one line. V %nom: the lowest voltage across any part of the circuit, % of its nominal voltage.${
+      loads.some((l) => l.breakerA !== undefined || l.circuit !== undefined) ? '' : ' Circuit numbers and breaker ratings come from the circuit and breakerA fields of each load in the board file.'
+    }`,
   };
 }
 
-export function resultsSection(result: BoardResult): ReportSection {
+export function scheduleSection(spec: BoardBaseSpec, result: BoardResult): ReportSection {
+  return { id: 'schedule', title: 'Panel schedule', blocks: [scheduleTable(spec.loads, result)] };
+}
+
+/** The voltage band the report judges against, % of nominal either side. */
+export interface VoltageBand {
+  readonly lowPercent: number;
+  readonly highPercent: number;
+  /** Where the band comes from, for the table's note. */
+  readonly source: string;
+}
+
+/** The band trivar's warnings use (EN 50160 LV supply band, ±10 %). */
+export const DEFAULT_VOLTAGE_BAND: VoltageBand = {
+  lowPercent: -WARNING_THRESHOLDS.voltageBandPercent,
+  highPercent: WARNING_THRESHOLDS.voltageBandPercent,
+  source: `±${WARNING_THRESHOLDS.voltageBandPercent} % of nominal, the EN 50160 low-voltage supply band trivar's warnings use`,
+};
+
+/** Every phase and line-to-line voltage of the board against the band: its limits in volts, the margin and a verdict. */
+export function voltageLimitsTable(result: BoardResult, band: VoltageBand = DEFAULT_VOLTAGE_BAND): ReportBlock {
+  const b = result.board;
+  const row = (name: string, v: number, percent: number, nominal: number): string[] => {
+    const margin = Math.min(percent - (100 + band.lowPercent), 100 + band.highPercent - percent);
+    const low = percent < 100 + band.lowPercent;
+    const high = percent > 100 + band.highPercent;
+    return [
+      name,
+      fixed(v, 1),
+      fixed(percent, 1),
+      `${fixed((nominal * (100 + band.lowPercent)) / 100, 1)} – ${fixed((nominal * (100 + band.highPercent)) / 100, 1)}`,
+      fixed(margin, 1),
+      low ? 'below the band' : high ? 'above the band' : 'within',
+    ];
+  };
+  const rows = result.phases.map((p) => row(`${p.phase}-N`, p.voltage.magnitude, p.voltagePercent, b.nominalLineToNeutralV));
+  if (b.nominalLineToLineV !== null && result.phases.length > 2)
+    for (const l of result.lineToLine) rows.push(row(l.pair, l.voltage.magnitude, l.voltagePercent, b.nominalLineToLineV));
+  return {
+    kind: 'table',
+    caption: 'Voltages against the limits',
+    columns: [{ label: 'Voltage' }, { label: 'V', align: 'right' }, { label: '%nom', align: 'right' }, { label: 'Allowed V', align: 'right' }, { label: 'Margin %', align: 'right' }, { label: 'Verdict' }],
+    rows,
+    note: `Band: ${band.source}. Margin: distance to the nearer limit, % of nominal (negative outside the band).${result.neutral ? '' : ' Phase voltages to the centroid of the line voltages (no neutral).'}`,
+  };
+}
+
+export interface ResultBlockOptions {
+  /** Start of every figure name, so figures of several boards stay apart. @defaultValue '' */
+  readonly figurePrefix?: string;
+  /** Draw the symmetrical components too (three-phase boards). @defaultValue true */
+  readonly sequenceFigure?: boolean;
+  /** The band voltages are judged against. @defaultValue `DEFAULT_VOLTAGE_BAND` */
+  readonly band?: VoltageBand;
+}
+
+/** The solved figures of a board as report blocks: the V/I table, the limits, the phasors, power factors and unbalance, warnings. */
+export function resultBlocks(result: BoardResult, options: ResultBlockOptions = {}): ReportBlock[] {
+  const prefix = options.figurePrefix ?? '';
   const blocks: ReportBlock[] = [];
   const rows = result.phases.map((p) => [
     p.phase,
@@ -153,7 +219,8 @@ export function resultsSection(result: BoardResult): ReportSection {
     rows,
     note: `${result.neutral ? 'Phase voltages to the neutral bar; the N row gives the neutral bar voltage to the source star point and the neutral current.' : 'Phase voltages to the centroid of the line voltages (no neutral).'} Line-to-line: ${result.lineToLine.map((l) => `${l.pair} ${fixed(l.voltage.magnitude, 1)} V`).join(', ')}.`,
   });
-  blocks.push({ kind: 'figure', name: 'phasors', caption: 'Phasor diagram of the board as solved', svg: renderPhasorDiagram(result) });
+  blocks.push(voltageLimitsTable(result, options.band));
+  blocks.push({ kind: 'figure', name: `${prefix}phasors`, caption: `Phasor diagram of ${result.board.name} as solved`, svg: renderPhasorDiagram(result) });
   const pf = result.powerFactor;
   const facts: [string, string][] = [
     ['Loads', `${fixed(result.totals.kW, 2)} kW, ${fixed(result.totals.kvar, 2)} kvar`],
@@ -172,13 +239,17 @@ export function resultsSection(result: BoardResult): ReportSection {
     facts.push(['Three-phase motor derating (NEMA MG 1)', u.motorDeratingFactor === null ? 'operation not recommended (above 5 %)' : `× ${fixed(u.motorDeratingFactor, 2)}`]);
   }
   blocks.push({ kind: 'facts', items: facts });
-  if (result.sequences) blocks.push({ kind: 'figure', name: 'sequences', caption: 'Symmetrical components of the voltages and line currents', svg: renderSequenceDiagram(result) });
+  if (result.sequences && options.sequenceFigure !== false) blocks.push({ kind: 'figure', name: `${prefix}sequences`, caption: 'Symmetrical components of the voltages and line currents', svg: renderSequenceDiagram(result) });
   blocks.push(
     result.warnings.length
       ? { kind: 'list', tone: 'warning', items: result.warnings.map((w) => w.message) }
       : { kind: 'paragraph', text: 'No warnings: every figure is within the thresholds trivar checks.' },
   );
-  return { id: 'results', title: 'Results', blocks };
+  return blocks;
+}
+
+export function resultsSection(result: BoardResult): ReportSection {
+  return { id: 'results', title: 'Results', blocks: resultBlocks(result) };
 }
 
 export function openNeutralSection(result: BoardResult): ReportSection | null {

@@ -8,6 +8,8 @@ import type { BoardResult } from '../../analysis/boardResult.js';
 import type { CorrectionReport } from '../../correction/correctionResult.js';
 import type { HarmonicsReport } from '../../harmonics/harmonicsResult.js';
 import { harmonicsSection, HARMONICS_STANDARDS } from './harmonicsSection.js';
+import type { HandCheckResult } from '../../handCheck/handCheckResult.js';
+import { handCheckSection } from './handCheckSection.js';
 import type { ReportDocument, ReportSection } from './reportDocument.js';
 import { installationSection, openNeutralSection, resultsSection, scheduleSection } from './boardSections.js';
 import { correctionSection, resonanceSection } from './correctionSection.js';
@@ -29,19 +31,36 @@ export interface BoardReportInput {
    * @defaultValue []
    */
   readonly studySections?: readonly ReportSection[];
+  /**
+   * A check of the user's hand calculation on this board (`checkHandFigures`), with an optional
+   * drawing of the line current triangles without and with their capacitors. @defaultValue none
+   */
+  readonly handCheck?: { readonly result: HandCheckResult; readonly triangles?: string } | null;
 }
 
-function closingSections(input: BoardReportInput): ReportSection[] {
-  const correction = input.correction ?? null;
-  const assumptions = [...MODEL_ASSUMPTIONS, ...(correction ? CORRECTION_ASSUMPTIONS : [])];
-  const harmonics = input.harmonics ?? null;
+/** What the closing sections draw on: every board result in the report and the studies that ran. */
+export interface ClosingInput {
+  readonly results: readonly BoardResult[];
+  readonly correction: CorrectionReport | null;
+  readonly harmonics: HarmonicsReport | null;
+  readonly handCheck: HandCheckResult | null;
+  /** Extra assumptions (e.g. of an installation). @defaultValue [] */
+  readonly assumptions?: readonly string[];
+}
+
+/** Assumptions, standards referred to and safety cautions, drawn from every study that ran. */
+export function closingSections(input: ClosingInput): ReportSection[] {
+  const { correction, harmonics, handCheck } = input;
+  // A hand check adds capacitors too, so the capacitor law (the first correction assumption) applies to it.
+  const capacitorAssumptions = correction ? CORRECTION_ASSUMPTIONS : handCheck ? CORRECTION_ASSUMPTIONS.slice(0, 1) : [];
+  const assumptions = [...MODEL_ASSUMPTIONS, ...(input.assumptions ?? []), ...capacitorAssumptions];
   const standards = [
     ...BOARD_STANDARDS,
-    ...(input.result.sequences ? THREE_PHASE_STANDARDS : []),
+    ...(input.results.some((r) => r.sequences) ? THREE_PHASE_STANDARDS : []),
     ...(correction ? CORRECTION_STANDARDS : []),
     ...(harmonics ? HARMONICS_STANDARDS : []),
   ];
-  const cautions = [...new Set([...(correction?.cautions ?? []), ...(harmonics?.cautions ?? []), ...input.result.cautions])];
+  const cautions = [...new Set([...(correction?.cautions ?? []), ...(harmonics?.cautions ?? []), ...(handCheck?.cautions ?? []), ...input.results.flatMap((r) => r.cautions)])];
   return [
     { id: 'assumptions', title: 'Assumptions', blocks: [{ kind: 'list', items: assumptions }] },
     {
@@ -51,6 +70,13 @@ function closingSections(input: BoardReportInput): ReportSection[] {
     },
     { id: 'cautions', title: 'Safety cautions', blocks: [{ kind: 'list', tone: 'caution', items: cautions }] },
   ];
+}
+
+/** Adds a study's section, replacing one with the same id. */
+export function placeSection(sections: ReportSection[], section: ReportSection): void {
+  const at = sections.findIndex((s) => s.id === section.id);
+  if (at >= 0) sections[at] = section;
+  else sections.push(section);
 }
 
 /**
@@ -71,18 +97,10 @@ export function buildBoardReport(input: BoardReportInput): ReportDocument {
     const resonance = resonanceSection(correction);
     if (resonance) sections.push(resonance);
   }
-  if (input.harmonics) {
-    const section = harmonicsSection(input.harmonics);
-    const at = sections.findIndex((s) => s.id === section.id);
-    if (at >= 0) sections[at] = section;
-    else sections.push(section);
-  }
-  for (const extra of input.studySections ?? []) {
-    const at = sections.findIndex((s) => s.id === extra.id);
-    if (at >= 0) sections[at] = extra;
-    else sections.push(extra);
-  }
-  sections.push(...closingSections(input));
+  if (input.harmonics) placeSection(sections, harmonicsSection(input.harmonics));
+  if (input.handCheck) placeSection(sections, handCheckSection(input.handCheck.result, input.handCheck.triangles));
+  for (const extra of input.studySections ?? []) placeSection(sections, extra);
+  sections.push(...closingSections({ results: [result], correction, harmonics: input.harmonics ?? null, handCheck: input.handCheck?.result ?? null }));
   return {
     title: result.board.name,
     subtitle: `Board report · ${result.board.nominalLineToNeutralV.toFixed(0)} V line-to-neutral · ${result.board.frequencyHz} Hz`,

@@ -45,3 +45,8 @@ export const CHARACTERISTIC_ORDERS: readonly number[] = [3, 5, 7, 11, 13];
  * detuned banks are placed well below the 5th, e.g. at 4.3 or 3.8).
  */
 export const RESONANCE_NEAR_FRACTION = 0.1;
+
+export const INSTALLATION_ASSUMPTIONS: readonly string[] = [
+  'The installation is radial: every board is fed by one feeder from one other board, and all boards are solved together as one network, so a load on one board moves the voltages of every other board.',
+  "Each board's figures are at that board: its line currents are what its feeder carries (the boards beyond it included), and its voltage drop is counted from the source EMF.",
+];

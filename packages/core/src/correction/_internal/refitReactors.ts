@@ -1,0 +1,127 @@
+/**
+ * A balancing compensator built from catalogue units: the capacitors come out
+ * in unit steps (rounded down where passing the requirement would tip the
+ * balance), while the reactors were sized beside the exact capacitors. Here the
+ * reactors are sized again beside the capacitors as built: the capacitor-only
+ * solution's Gauss–Newton/QP loop (same weighted residual I2, I0, Q1 − target,
+ * same no-leading bounds) with the reactor outputs as its only unknowns, each
+ * ≥ 0 as an inductive output, on the solved board — and the balance target
+ * (|I2|/|I1|, neutral) held as constraints where the reactors can hold it.
+ * Where the build as sized misses a target, the re-sized reactors are built
+ * when they meet more of the targets (PF, balance), or as many with a lower
+ * residual.
+ */
+import type { Board } from '../../board/boardModel.js';
+import { checkTarget, type ResolvedTarget } from '../correctionTarget.js';
+import { checkBalance, type BalanceTarget } from '../balanceTarget.js';
+import type { SolveOptions } from '../../network/solveNetwork.js';
+import type { BankSelection, BranchSizing, ReactorResizing } from '../correctionResult.js';
+import { kvarFromSusceptance, susceptanceFromKvar, addCorrectionEquipment, type BranchSlot, type EquipmentGroup } from '../equipment.js';
+import { CORRECTION_DEFAULTS } from '../correctionDefaults.js';
+import { createProbe, type BoardProbe, type ProbeState } from './boardProbe.js';
+import { lineBands } from './lineBands.js';
+import { compensatorResidual, residualBasesFor, residualWeights } from './compensatorResidual.js';
+import { solveCapacitorOnlyCompensator } from './capacitorOnlyCompensator.js';
+
+export interface ReactorRefitInput {
+  readonly target: ResolvedTarget;
+  /** Held as constraints where the reactors can hold it; the weighted residual decides within it. */
+  readonly balance: BalanceTarget;
+  readonly includeZeroSequence: boolean;
+  readonly weights: { readonly negativeSequence: number; readonly zeroSequence: number; readonly reactive: number };
+  readonly maxIterations: number;
+  readonly solve?: SolveOptions;
+}
+
+export interface RefitOutcome extends ReactorResizing {
+  /** The compensator as built with the reactors re-sized (a reactor's fixed part is itself). */
+  readonly equipment: EquipmentGroup[];
+}
+
+/** The reactors of `built` re-sized to its capacitors; null when it has no reactor. */
+export function refitReactors(board: Board, built: readonly EquipmentGroup[], input: ReactorRefitInput): RefitOutcome | null {
+  const slots: BranchSlot[] = [];
+  const sizedKvar: number[] = [];
+  for (const g of built)
+    for (const b of g.branches)
+      // Every branch without a capacitor may take a reactor (an empty one too: the balance may need it).
+      if (b.susceptanceS <= 0) {
+        slots.push({ branch: b.branch, from: b.from, to: b.to, vNominal: b.vNominal });
+        sizedKvar.push(-kvarFromSusceptance(b.susceptanceS, b.vNominal));
+      }
+  if (!sizedKvar.some((q) => q > 0)) return null;
+  const slotOf = (branch: string) => slots.findIndex((s) => s.branch === branch);
+  const withReactors = (kvar: readonly number[]): EquipmentGroup[] =>
+    built.map((g) => ({
+      ...g,
+      branches: g.branches.map((b) => {
+        const i = slotOf(b.branch);
+        if (i < 0) return b;
+        const s = kvar[i]! === 0 ? 0 : susceptanceFromKvar(-kvar[i]!, b.vNominal);
+        return { ...b, susceptanceS: s, fixedSusceptanceS: s };
+      }),
+    }));
+  const capacitorsOnly = built.map((g) => ({ ...g, branches: g.branches.filter((b) => slotOf(b.branch) < 0) })).filter((g) => g.branches.length > 0);
+  const base = addCorrectionEquipment(board, capacitorsOnly);
+  // Unknowns are reactor outputs ≥ 0; the probe adds them as negative (inductive) outputs.
+  const inner = createProbe(base, slots, 'compensator reactors', input.solve);
+  const probe: BoardProbe = {
+    slots,
+    base,
+    at: (kvar) => ({ ...inner.at(kvar.map((q) => -q)), kvar: [...kvar] }),
+    groups: (kvar) => inner.groups(kvar.map((q) => -q)),
+    solves: inner.solves,
+  };
+  const start = createProbe(board, [], 'nothing', input.solve).at([]);
+  const bases = residualBasesFor(start.result, board, input.target, input.includeZeroSequence);
+  const weights = residualWeights(bases, input.weights);
+  const objectiveOf = (state: ProbeState) => compensatorResidual(state, bases).reduce((s, r, k) => s + weights[k]! * r * r, 0);
+  // Targets met (the PF target, the balance target): more is better, then the lower residual.
+  const targetsMet = (state: ProbeState) => Number(checkTarget(state.result, input.target, start.result).met) + Number(checkBalance(state.result, input.balance).met);
+  const outcome = solveCapacitorOnlyCompensator(probe, bases, {
+    weights,
+    ridge: CORRECTION_DEFAULTS.compensatorRidge,
+    lineLowerTan: lineBands(input.target, start, 'limit').map((b) => b.low),
+    maxIterations: input.maxIterations,
+    convergence: CORRECTION_DEFAULTS.convergence,
+    balanceLimits: {
+      negativeSequence: input.balance.maxNegativeSequencePercent / 100,
+      // The neutral carries 3·I0.
+      zeroSequence: input.balance.maxNeutralPercent === null ? null : input.balance.maxNeutralPercent / 300,
+    },
+  });
+  // A reactor below 1 % of the compensator is not worth building (as in selectBankUnits) unless a target needs it.
+  const total = built.flatMap((g) => g.branches).reduce((sum, b) => sum + Math.abs(kvarFromSusceptance(b.susceptanceS, b.vNominal)), 0);
+  const trimmed = outcome.state.kvar.map((q) => (q < 0.01 * total ? 0 : q));
+  const trimmedState = trimmed.every((q, i) => q === outcome.state.kvar[i]) ? outcome.state : probe.at(trimmed);
+  const keepSmall = targetsMet(trimmedState) < targetsMet(outcome.state);
+  const resized = keepSmall ? outcome.state.kvar : trimmed;
+  const resizedState = keepSmall ? outcome.state : trimmedState;
+  const sizedState = probe.at(sizedKvar);
+  const objectiveSized = objectiveOf(sizedState);
+  const objectiveResized = objectiveOf(resizedState);
+  const [metSized, metResized] = [targetsMet(sizedState), targetsMet(resizedState)];
+  return {
+    equipment: withReactors(resized),
+    reactors: slots.map((s, i) => ({ branch: s.branch, sizedKvar: sizedKvar[i]!, resizedKvar: resized[i]! })),
+    objectiveSized,
+    objectiveResized,
+    converged: outcome.converged,
+    // A build that meets both targets as sized stays as it is.
+    used: metSized < 2 && (metResized > metSized || (metResized === metSized && objectiveResized < objectiveSized)),
+    solves: inner.solves(),
+  };
+}
+
+/** The selection with its reactors as re-sized: equipment, and each reactor row's output and current as verified. */
+export function selectionWithResizedReactors(selection: BankSelection, refit: RefitOutcome, verified: readonly BranchSizing[]): BankSelection {
+  const reactor = new Set(refit.reactors.map((r) => r.branch));
+  return {
+    ...selection,
+    equipment: refit.equipment,
+    selections: selection.selections.map((row) => {
+      const v = verified.find((b) => b.branch === row.branch);
+      return reactor.has(row.branch) && v ? { ...row, designKvarAtAppliedV: v.kvarAtAppliedV, designCurrentA: v.currentA } : row;
+    }),
+  };
+}

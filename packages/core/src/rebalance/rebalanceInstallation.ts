@@ -1,0 +1,387 @@
+/**
+ * The rebalancing study: which circuits to move to which connection, on any
+ * board of an installation (a single board is the installation with one board).
+ *
+ *   study ─resolve─▶ problem (fast complex-power model) ─local search─▶ answer
+ *     ─branch-and-bound (small boards)─▶ proven answer, or polygon lower bound ─▶ gap
+ *     ─move table / fewest moves─▶ chosen answer ─network solver─▶ before/after figures
+ */
+import type { Installation } from '../board/boardModel.js';
+import type { ConnectionSpec } from '../board/boardSchema.js';
+import { InputError, inputIssue } from '../errors.js';
+import { parseOptions } from '../_internal/zodIssues.js';
+import { assertFiniteResult } from '../analysis/assertFiniteResult.js';
+import { analyseSolution } from '../analysis/analyseSolution.js';
+import { solveInstallationNetwork } from '../network/solveNetwork.js';
+import type { BoardResult } from '../analysis/boardResult.js';
+import * as z from 'zod';
+import {
+  homeChoice,
+  magnitudesOf,
+  scoreChoice,
+  sumQuantities,
+  tieTolerance,
+  type AssignmentProblem,
+  type ScoredChoice,
+} from './assignmentProblem.js';
+import { magnitudeBoundsWithMoveLimit } from './assignmentBounds.js';
+import { buildAssignmentProblem, type BuiltProblem } from './buildAssignmentProblem.js';
+import { conditionFigures, builtInObjective, type ConditionFigures, type ConditionLayout, type RebalanceObjective } from './rebalanceObjective.js';
+import { resolveRebalanceSpec, type RebalanceContext, type ResolvedRebalance } from './rebalanceRules.js';
+import { rebalanceTree, type RebalanceTree } from './rebalanceTree.js';
+import { searchExact } from './searchExact.js';
+import { greedyChoice, searchLocal, trimMoves } from './searchLocal.js';
+import { searchMeetInMiddle } from './searchMeetInMiddle.js';
+import { installationInCondition, moveInstallationCircuits } from './applyMoves.js';
+import type { CapacityExcess, CircuitMove, ConditionComparison, MoveTableRow, RebalanceReport } from './rebalanceResult.js';
+import { REBALANCE_CAUTIONS, REBALANCE_NOTES } from './rebalanceWording.js';
+
+const optionsSchema = z.strictObject({
+  method: z.enum(['auto', 'exact', 'local-search']).optional(),
+  exactUpTo: z.int().min(0).optional(),
+  nodeBudget: z.int().positive().optional(),
+  kicks: z.int().min(0).optional(),
+  seed: z.int().optional(),
+  moveTable: z.boolean().optional(),
+  objective: z.function().optional(),
+  profile: z.looseObject({}).optional(),
+});
+
+export interface RebalanceOptions {
+  /**
+   * `exact` always runs branch-and-bound (to the node budget), `local-search` never,
+   * `auto` runs it on boards with at most `exactUpTo` movable circuits.
+   * @defaultValue 'auto'
+   */
+  readonly method?: 'auto' | 'exact' | 'local-search';
+  /** @defaultValue 18 (movable circuits: proven within half a second of CPU on random boards, see README) */
+  readonly exactUpTo?: number;
+  /** Most branch-and-bound nodes before it stops and reports the best found. @defaultValue 2 000 000 (a few seconds) */
+  readonly nodeBudget?: number;
+  /** Random kicks of the local search after its first local optimum. @defaultValue 100 */
+  readonly kicks?: number;
+  /** Seed of the local search's generator (answers are repeatable). @defaultValue 1 */
+  readonly seed?: number;
+  /** Also tabulate the best score with 0, 1, 2… moves. @defaultValue true (always on in fewest-moves mode) */
+  readonly moveTable?: boolean;
+  /**
+   * Your own score of the condition figures (lower is better) instead of the
+   * aim weights. It must never fall when a figure grows (see `RebalanceObjective`).
+   */
+  readonly objective?: RebalanceObjective;
+  /** The file's `profile:` section, read when the study's conditions are `"scenarios"`. */
+  readonly profile?: RebalanceContext['profile'];
+}
+
+interface ResolvedOptions {
+  readonly method: 'auto' | 'exact' | 'local-search';
+  readonly exactUpTo: number;
+  readonly nodeBudget: number;
+  readonly kicks: number;
+  readonly seed: number;
+  readonly moveTable: boolean;
+  readonly objective: RebalanceObjective | undefined;
+}
+
+function resolveOptions(options: RebalanceOptions): ResolvedOptions {
+  parseOptions(optionsSchema, options, 'rebalanceBoard options');
+  return {
+    method: options.method ?? 'auto',
+    exactUpTo: options.exactUpTo ?? 18,
+    nodeBudget: options.nodeBudget ?? 2_000_000,
+    kicks: options.kicks ?? 100,
+    seed: options.seed ?? 1,
+    moveTable: options.moveTable ?? true,
+    objective: options.objective,
+  };
+}
+
+/**
+ * Meet-in-the-middle rounds for one-quantity scores, each freeing 16 circuits (2 × 6561 placings):
+ * on random boards of 24–36 circuits six rounds took the neutral current from about 0.3 A after the
+ * local search to a few mA, in a few milliseconds each.
+ */
+const MEET_ROUNDS = 6;
+const MEET_SIZE = 16;
+
+/** Kicks for the incumbent handed to branch-and-bound (which then proves or improves it). */
+const EXACT_INCUMBENT_KICKS = 30;
+
+interface Answer {
+  readonly best: ScoredChoice;
+  readonly lowerBound: number | null;
+  readonly proven: boolean;
+  readonly exactRan: boolean;
+  readonly nodes: number;
+}
+
+/** Best answer with at most `limit` moves: local search, then branch-and-bound where it pays. */
+function answerWithin(p: AssignmentProblem, single: number | null, limit: number, o: ResolvedOptions, tie: number, hints: readonly ScoredChoice[]): Answer {
+  const n = p.circuitCount;
+  const starts = [homeChoice(p)];
+  if (limit >= n) starts.push(greedyChoice(p));
+  for (const hint of hints) starts.push(hint.moves <= limit ? hint.choice : trimMoves(p, hint.choice, limit, tie));
+  const exactRan = o.method === 'exact' || (o.method === 'auto' && n <= o.exactUpTo);
+  // With branch-and-bound to follow, the local search only needs a fair incumbent.
+  const kicks = exactRan ? Math.min(o.kicks, EXACT_INCUMBENT_KICKS) : o.kicks;
+  let best = searchLocal(p, starts, { moveLimit: limit, kicks, seed: o.seed, tie });
+  if (single !== null && !exactRan)
+    best = searchMeetInMiddle(p, best, { quantity: single, moveLimit: limit, rounds: MEET_ROUNDS, size: MEET_SIZE, seed: o.seed, tie });
+  let proven = false;
+  let nodes = 0;
+  if (exactRan) {
+    const exact = searchExact(p, { moveLimit: limit, nodeBudget: o.nodeBudget, incumbent: best, tie });
+    best = exact.best;
+    proven = exact.complete;
+    nodes = exact.nodes;
+  }
+  let lowerBound: number | null = proven ? best.score : p.score(magnitudeBoundsWithMoveLimit(p, limit));
+  if (!proven && lowerBound !== null && best.excess <= tie && lowerBound <= best.score + tie) proven = lowerBound >= best.score - tie;
+  // A score that falls as a figure grows (only possible for a custom one) voids the bound.
+  if (lowerBound !== null && lowerBound > best.score + tie) lowerBound = null;
+  if (best.excess > tie) lowerBound = null;
+  return { best, lowerBound: lowerBound === null ? null : Math.min(lowerBound, best.score), proven, exactRan, nodes };
+}
+
+function figuresOf(layouts: readonly ConditionLayout[], p: AssignmentProblem, choice: Int32Array): ConditionFigures[] {
+  const mags = magnitudesOf(sumQuantities(p, choice), new Float64Array(p.quantityCount));
+  return layouts.map((l) => conditionFigures(l, mags));
+}
+
+function solvedFigures(name: string, board: string, result: BoardResult): ConditionFigures {
+  const lineA = result.phases.map((ph) => ph.current.magnitude);
+  return {
+    name,
+    board,
+    lineA,
+    largestLineA: Math.max(...lineA),
+    neutralA: result.neutral ? result.neutral.current.magnitude : null,
+    currentUnbalancePercent: result.unbalance ? result.unbalance.currentNegativePercent : null,
+    voltageUnbalancePercent: result.unbalance ? result.unbalance.voltageFactorPercent : null,
+  };
+}
+
+/** Capacity below what no spread of the movable circuits can avoid is a bad study, whatever the move limit. */
+function checkCapacity(built: BuiltProblem, study: ResolvedRebalance, tie: number): void {
+  const bounds = magnitudeBoundsWithMoveLimit(built.problem, built.problem.circuitCount);
+  const several = built.layouts.length > new Set(built.layouts.map((l) => l.condition)).size;
+  // Parseval: the largest line current is at least the part no assignment changes (|I1|, or the split-phase share).
+  const balanced = built.layouts.flatMap((layout) => {
+    const best = Math.max(...layout.lines.map((_, k) => study.lineCapacityA[k]!));
+    if (!(layout.balancedA > best + tie)) return [];
+    const path = study.capacityPaths.every((x) => x === 'lineCapacityA') ? 'lineCapacityA' : study.capacityPaths[0]!.replace(/\.[ABC]$/, '');
+    return [
+      inputIssue(
+        'capacity_unreachable',
+        path,
+        `a capacity of at least ${layout.balancedA.toFixed(1)} A on some line${several ? ` at "${layout.board}"` : ''} in "${layout.name}": spread perfectly, the load still draws ${layout.balancedA.toFixed(1)} A per line`,
+        best,
+      ),
+    ];
+  });
+  if (balanced.length) throw new InputError(balanced, 'the rebalancing study is not valid');
+  const issues = built.layouts.flatMap((layout, c) =>
+    layout.lines.flatMap((j, k) => {
+      const cap = study.lineCapacityA[k]!;
+      if (!(bounds[j]! > cap + tie)) return [];
+      const line = ['A', 'B', 'C'][k];
+      const fixed = built.fixedLineA[c]![k]!;
+      const at = several ? ` at "${layout.board}"` : '';
+      return [
+        inputIssue(
+          'capacity_unreachable',
+          study.capacityPaths[k]!,
+          `a capacity of at least ${bounds[j]!.toFixed(1)} A for line ${line}${at} in "${layout.name}": the circuits that cannot move draw ${fixed.toFixed(1)} A on it and no spread of the others brings it lower`,
+          cap,
+        ),
+      ];
+    }),
+  );
+  if (issues.length) throw new InputError(issues, 'the rebalancing study is not valid');
+}
+
+/** Every line of the answer above its capacity in the fast model, worst first. */
+function capacityExcesses(built: BuiltProblem, study: ResolvedRebalance, choice: Int32Array, tie: number): CapacityExcess[] {
+  const p = built.problem;
+  const mags = magnitudesOf(sumQuantities(p, choice), new Float64Array(p.quantityCount));
+  const out: CapacityExcess[] = [];
+  built.layouts.forEach((layout) =>
+    layout.lines.forEach((j, k) => {
+      const cap = study.lineCapacityA[k]!;
+      if (mags[j]! > cap + tie) out.push({ board: layout.board, condition: layout.name, line: ['A', 'B', 'C'][k] as 'A', currentA: mags[j]!, capacityA: cap, overA: mags[j]! - cap });
+    }),
+  );
+  return out.sort((a, b) => b.overA - a.overA);
+}
+
+/** Solved figures at each board of the installation, in one condition. */
+function solveAtBoards(installation: Installation, condition: string, tree: RebalanceTree): ConditionFigures[] {
+  const solution = solveInstallationNetwork(installation);
+  return solution.boards.map((b, k) => solvedFigures(condition, tree.names[k]!, assertFiniteResult(analyseSolution(b))));
+}
+
+/**
+ * Finds which circuits to move to which connection so the score (by default the
+ * largest line current plus the neutral current at each board's incomer, added
+ * over the boards, in the worst load condition) is as small as possible, within
+ * the move limit and line capacities, and re-solves the installation before and
+ * after with the network solver.
+ *
+ * @param installation a normalised installation (`normaliseInstallation`); a single board is one with no sub-boards.
+ * @param study the study, shaped like the file's `rebalance:` section.
+ * @throws {InputError} for a bad study (paths relative to the study: `pinned[1].on`).
+ * @throws {NumericalError} when the network solver cannot solve a condition.
+ * @example
+ * const { installation } = normaliseInstallation(parseInstallation(riser));
+ * const report = rebalanceInstallation(installation, { boards: ['Floor 3'], measureAt: 'main' });
+ * report.moves //=> [{ board: 'Floor 3', circuit: 1, name: 'Flat 3A', from: 'A-N', to: 'B-N' }]
+ */
+export function rebalanceInstallation(installation: Installation, study: unknown, options: RebalanceOptions = {}): RebalanceReport {
+  const o = resolveOptions(options);
+  const tree = rebalanceTree(installation);
+  const resolved = resolveRebalanceSpec(study, tree, { profile: options.profile });
+  const built = buildAssignmentProblem(tree, resolved, o.objective);
+  const p = built.problem;
+  const n = p.circuitCount;
+  const forced = built.slots.filter((s) => !s.options.includes(s.present)).length;
+  if (resolved.moveLimit < forced)
+    throw new InputError(
+      [inputIssue('out_of_range', 'moveLimit', `at least ${forced}: that many circuits are pinned to a connection they are not on`, resolved.moveLimit)],
+      'the rebalancing study is not valid',
+    );
+  const limit = Math.min(resolved.moveLimit, n);
+  const home = scoreChoice(p, homeChoice(p));
+  const tie = tieTolerance(home.score);
+  checkCapacity(built, resolved, tie);
+
+  const main = answerWithin(p, built.singleQuantity, limit, o, tie, []);
+  let chosen = main;
+  let table: MoveTableRow[] | null = null;
+  const wantTable = o.moveTable || resolved.nearBestPercent !== null;
+  if (wantTable) {
+    table = [];
+    let previous: Answer | null = null;
+    for (let m = forced; m <= limit; m++) {
+      let row: Answer = m === limit ? main : answerWithin(p, built.singleQuantity, m, o, tie, previous ? [main.best, previous.best] : [main.best]);
+      // An answer with fewer moves is allowed with more: rows never get worse.
+      if (previous && previous.best.score <= row.best.score - tie && previous.best.excess <= tie) row = { ...row, best: previous.best };
+      table.push({ moves: m, score: row.best.score, lowerBound: row.lowerBound, proven: row.proven, movesUsed: row.best.moves, withinCapacity: row.best.excess <= tie });
+      previous = row;
+      if (row.best.excess <= tie && row.best.score <= main.best.score + tie && row.best.moves <= main.best.moves) break;
+    }
+    if (resolved.nearBestPercent !== null) {
+      const best = Math.min(main.best.score, ...table.map((r) => r.score));
+      const target = best * (1 + resolved.nearBestPercent / 100) + tie;
+      const row = table.find((r) => r.score <= target && r.withinCapacity);
+      if (row && row.moves < limit) chosen = answerWithin(p, built.singleQuantity, row.moves, o, tie, [main.best]);
+    }
+  }
+
+  const choice = chosen.best.choice;
+  const moves: CircuitMove[] = [];
+  const moveMap = new Map<number, ConnectionSpec>();
+  built.slots.forEach((slot, i) => {
+    const to = slot.options[choice[i]!]!;
+    if (to !== slot.present) {
+      moves.push({ board: slot.boardName, circuit: slot.loadIndex + 1, name: slot.name, from: slot.present, to });
+      moveMap.set(slot.flat, to);
+    }
+  });
+  const moved = moveInstallationCircuits(tree, moveMap);
+  const beforeModel = figuresOf(built.layouts, p, homeChoice(p));
+  const afterModel = figuresOf(built.layouts, p, choice);
+  const solved = resolved.conditions.map((c) => ({
+    before: solveAtBoards(installationInCondition(tree, installation, c.factors), c.name, tree),
+    after: solveAtBoards(installationInCondition(tree, moved, c.factors), c.name, tree),
+  }));
+  const conditions: ConditionComparison[] = built.layouts.map((l, k) => {
+    const b = tree.names.indexOf(l.board);
+    return {
+      name: l.name,
+      board: l.board,
+      weight: l.weight,
+      model: { before: beforeModel[k]!, after: afterModel[k]! },
+      solved: { before: solved[l.condition]!.before[b]!, after: solved[l.condition]!.after[b]! },
+    };
+  });
+  const unmeasured = tree.boards.length > 1 ? resolved.conditions.flatMap((c, ci) =>
+    tree.names
+      .map((name, b) => ({ name, b }))
+      .filter(({ b }) => !resolved.measuredBoards.includes(b))
+      .map(({ name, b }) => ({ name: c.name, board: name, weight: c.weight, before: solved[ci]!.before[b]!, after: solved[ci]!.after[b]! })),
+  ) : [];
+  const objective = o.objective ?? builtInObjective(resolved.aim, resolved.combine, built.layouts);
+  const solvedScore = {
+    before: objective(conditions.map((c) => c.solved.before)),
+    after: objective(conditions.map((c) => c.solved.after)),
+  };
+
+  const notes: string[] = [];
+  if (n === 0) notes.push(REBALANCE_NOTES.nothingToMove);
+  else if (moves.length === 0) notes.push(REBALANCE_NOTES.alreadyBest);
+  if (chosen.exactRan && !chosen.proven && chosen.nodes > o.nodeBudget) notes.push(REBALANCE_NOTES.budgetReached(o.nodeBudget));
+  if (chosen.lowerBound === null && chosen.best.excess <= tie && n > 0) notes.push(REBALANCE_NOTES.noBound);
+  const excesses = chosen.best.excess > tie ? capacityExcesses(built, resolved, choice, tie) : [];
+  if (excesses.length) {
+    const bounds = magnitudeBoundsWithMoveLimit(p, limit);
+    const impossible = built.layouts.some((l) => l.lines.some((j, k) => bounds[j]! > resolved.lineCapacityA[k]! + tie));
+    const several = tree.boards.length > 1;
+    notes.push(REBALANCE_NOTES.capacityNotMet(limit, impossible || (chosen.exactRan && chosen.proven), excesses.map((e) => REBALANCE_NOTES.excess(e, several))));
+  }
+  conditions.forEach(({ board, solved: { before: f } }) =>
+    f.lineA.forEach((amps, k) => {
+      const cap = resolved.lineCapacityA[k]!;
+      if (amps > cap + tie) notes.push(REBALANCE_NOTES.overCapacityNow(tree.boards.length > 1 ? board : null, tree.boards[0]!.phases[k]!, amps, cap, f.name));
+    }),
+  );
+  if (moves.length > 0 && solvedScore.after > solvedScore.before + tieTolerance(solvedScore.before))
+    notes.push(REBALANCE_NOTES.solvedNotBetter(solvedScore.before, solvedScore.after));
+  const differs = Math.max(
+    ...conditions.flatMap((c) =>
+      c.solved.after.lineA.map((a, k) => (100 * Math.abs(a - c.model.after.lineA[k]!)) / Math.max(c.solved.after.largestLineA, 1e-9)),
+    ),
+  );
+  if (differs > 5) notes.push(REBALANCE_NOTES.modelDiffers(differs));
+
+  const after = chosen.best.score;
+  const lb = chosen.lowerBound;
+  const main0 = tree.boards[0]!;
+  return {
+    board: { name: tree.boards.length > 1 ? installation.name : main0.name, system: main0.system },
+    boards: {
+      all: tree.names,
+      movable: tree.names.filter((_, b) => resolved.movableBoards[b]),
+      measured: resolved.measuredBoards.map((b) => tree.names[b]!),
+    },
+    aim: o.objective ? 'custom' : resolved.aim,
+    combine: resolved.combine,
+    moveLimit: Number.isFinite(resolved.moveLimit) ? resolved.moveLimit : null,
+    method: chosen.proven && chosen.exactRan ? 'exact' : 'local-search',
+    proven: chosen.proven,
+    score: {
+      before: home.score,
+      after,
+      lowerBound: lb,
+      gap: lb === null ? null : after - lb,
+      gapPercent: lb === null ? null : after > 0 ? (100 * (after - lb)) / after : 0,
+    },
+    solvedScore,
+    moves,
+    conditions,
+    otherBoards: unmeasured,
+    capacityExceeded: excesses,
+    moveTable: o.moveTable || resolved.nearBestPercent !== null ? table : null,
+    nearBest: resolved.nearBestPercent !== null ? { percent: resolved.nearBestPercent, bestScore: main.best.score } : null,
+    search: {
+      circuits: tree.circuits.filter((_, flat) => {
+        const ref = tree.circuits[flat]!;
+        return resolved.movableBoards[ref.board] && tree.boards[ref.board]!.loads[ref.load]!.origin === 'board';
+      }).length,
+      movable: built.slots.filter((s) => s.options.length > 1).length,
+      pinned: resolved.pinned.size,
+      nodes: main.nodes + (chosen === main ? 0 : chosen.nodes),
+    },
+    notes,
+    cautions: REBALANCE_CAUTIONS,
+  };
+}

@@ -1,0 +1,72 @@
+/**
+ * Assembles the report of an installation: its description and one-line
+ * drawing, the feeders, the totals, one section per board, the studies that
+ * ran (correction at a board, further sections), then
+ * assumptions, standards and safety cautions over every board.
+ */
+import type { InstallationBaseSpec } from '../../board/installationSchema.js';
+import type { InstallationResult } from '../../analysis/installationResult.js';
+import type { CorrectionReport } from '../../correction/correctionResult.js';
+import type { ReportDocument, ReportSection } from './reportDocument.js';
+import { boardSection, boardSectionIds, feedersSection, installationDescription, totalsSection } from './installationSections.js';
+import { closingSections, placeSection } from './buildBoardReport.js';
+import { correctionSection, resonanceSection } from './correctionSection.js';
+import { openNeutralSection } from './boardSections.js';
+import { fixed } from '../svgText.js';
+import { INSTALLATION_ASSUMPTIONS } from './reportWording.js';
+
+export interface InstallationReportInput {
+  /** The installation file as validated (`parseInstallation`). */
+  readonly spec: InstallationBaseSpec;
+  /** The solved installation (`solveInstallation`). */
+  readonly result: InstallationResult;
+  /** A correction study at one board of the installation, if one ran. @defaultValue none */
+  readonly correction?: { readonly board: string; readonly report: CorrectionReport } | null;
+  /** Sections from further studies, placed before the assumptions; the same id replaces. @defaultValue [] */
+  readonly studySections?: readonly ReportSection[];
+}
+
+/** A study's section retitled with the board it was made at (its id kept, so it can still be replaced). */
+const atBoard = (section: ReportSection, board: string): ReportSection => ({ ...section, title: `${section.title} — ${board}` });
+
+/**
+ * Builds the report of a solved installation as a document (render it with
+ * `renderReportHtml` or `renderReportMarkdown`).
+ * @example
+ * const spec = parseInstallation(readBoardText(text));
+ * const doc = buildInstallationReport({ spec, result: solveInstallation(spec) });
+ * doc.sections.slice(0, 3).map((s) => s.id) //=> ['installation', 'feeders', 'totals']
+ */
+export function buildInstallationReport(input: InstallationReportInput): ReportDocument {
+  const { spec, result } = input;
+  const ids = boardSectionIds(result.boards.map((b) => b.name));
+  const sections: ReportSection[] = [installationDescription(spec, result), feedersSection(result), totalsSection(result)];
+  for (const b of result.boards) {
+    sections.push(boardSection(spec, result, b, ids.get(b.name)!));
+    const open = openNeutralSection(b.result);
+    if (open) sections.push({ ...atBoard(open, b.name), id: `${ids.get(b.name)!}-open-neutral` });
+  }
+  const correction = input.correction ?? null;
+  if (correction) {
+    sections.push(atBoard(correctionSection(correction.report), correction.board));
+    const resonance = resonanceSection(correction.report);
+    if (resonance) sections.push(atBoard(resonance, correction.board));
+  }
+  for (const extra of input.studySections ?? []) placeSection(sections, extra);
+  sections.push(
+    ...closingSections({
+      results: result.boards.map((b) => b.result),
+      correction: correction?.report ?? null,
+      harmonics: null,
+      handCheck: null,
+      assumptions: INSTALLATION_ASSUMPTIONS,
+    }),
+  );
+  const main = result.boards[0]!.result.board;
+  const volts = main.nominalLineToLineV !== null ? `${fixed(main.nominalLineToLineV, 0)}/${fixed(main.nominalLineToNeutralV, 0)} V` : `${fixed(main.nominalLineToNeutralV, 0)} V`;
+  return {
+    title: result.installation.name,
+    subtitle: `Installation report · ${result.installation.boardCount} boards · ${volts} · ${main.frequencyHz} Hz`,
+    sections,
+  };
+}

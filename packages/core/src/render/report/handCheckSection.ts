@@ -1,0 +1,149 @@
+/**
+ * The hand-calculation check as a report section: the textbook per-phase
+ * working, the user's figures against the solved board, and the effects that
+ * make up each difference. Reads only `checkHandFigures`' plain result.
+ */
+import type { HandCheckResult } from '../../handCheck/handCheckResult.js';
+import type { PowerFactorSense } from '../../analysis/boardResult.js';
+import { fixed } from '../svgText.js';
+import type { ReportBlock, ReportColumn, ReportSection } from './reportDocument.js';
+
+const num = (label: string): ReportColumn => ({ label, align: 'right' });
+const orDash = (x: number | null, d: number): string => (x === null ? '—' : fixed(x, d));
+const senseWord = (s: PowerFactorSense): string => (s === 'lagging' ? ' lag' : s === 'leading' ? ' lead' : '');
+/** A difference with its sign; a figure that rounds to zero reads as plain zero. */
+const signed = (x: number, d: number): string => {
+  const s = fixed(x, d);
+  return /^0\.?0*$/.test(s) ? s : x > 0 ? `+${s}` : s;
+};
+
+function capacitorTable(r: HandCheckResult): ReportBlock {
+  return {
+    kind: 'table',
+    caption: 'Your capacitors: counted by hand and as they run on the board',
+    columns: [{ label: 'Branch' }, num('kvar by hand'), num('µF'), num('V nominal'), num('V solved'), num('kvar solved')],
+    rows: r.capacitors.map((c) => [c.branch, fixed(c.handKvar, 2), fixed(c.capacitanceUF, 1), fixed(c.nominalV, 1), fixed(c.appliedV, 1), fixed(c.kvarAtAppliedV, 2)]),
+    note: 'A capacitor gives Q = ωCV²: at the solved voltage its output differs from the figure counted at nominal voltage.',
+  };
+}
+
+function workingTable(r: HandCheckResult): ReportBlock {
+  const target = r.targetPf;
+  const v = r.textbook[0]?.voltageV ?? r.board.nominalLineToNeutralV;
+  return {
+    kind: 'table',
+    caption: 'Textbook working, phase by phase',
+    columns: [
+      { label: 'Phase' },
+      num('P kW'),
+      num('Q kvar'),
+      num('tan φ1'),
+      num('PF1'),
+      ...(target !== null ? [num(`Qc for ${fixed(target, 2)}`)] : []),
+      num('Qc yours'),
+      num("Q' kvar"),
+      num('tan φ2'),
+      num('PF2'),
+    ],
+    rows: r.textbook.map((p) => [
+      p.phase,
+      fixed(p.kW, 2),
+      fixed(p.kvarBefore, 2),
+      orDash(p.tanBefore, 3),
+      fixed(p.pfBefore, 3),
+      ...(target !== null ? [orDash(p.requiredKvar, 2)] : []),
+      fixed(p.capacitorKvar, 2),
+      fixed(p.kvarAfter, 2),
+      orDash(p.tanAfter, 3),
+      `${fixed(p.pfAfter, 3)}${senseWord(p.senseAfter)}`,
+    ]),
+    note: `Qc = P·(tan φ1 − tan φ2) and Q' = Q − Qc, with every phase at ${fixed(v, 1)} V and a line-pair branch counted half on each of its two lines.`,
+  };
+}
+
+function triangleTable(r: HandCheckResult): ReportBlock {
+  return {
+    kind: 'table',
+    caption: 'Current triangle of each phase, before → after your capacitors',
+    columns: [{ label: 'Phase' }, num('Active A = P/V'), num('Reactive A = Q/V'), num('Line A = √(a² + r²)')],
+    rows: r.textbook.map((p) => [
+      p.phase,
+      fixed(p.activeCurrentA, 1),
+      `${fixed(p.reactiveCurrentBeforeA, 1)} → ${fixed(p.reactiveCurrentAfterA, 1)}`,
+      `${fixed(p.currentBeforeA, 1)} → ${fixed(p.currentAfterA, 1)}`,
+    ]),
+  };
+}
+
+function comparedTable(r: HandCheckResult): ReportBlock {
+  const rows: string[][] = [];
+  for (const l of r.lines) {
+    rows.push([l.phase, 'current A', orDash(l.currentA.yours, 1), fixed(l.currentA.textbook, 1), fixed(l.currentA.solved, 1), signed(l.currentA.difference, 1)]);
+    rows.push([l.phase, 'PF', orDash(l.pf.yours, 3), `${fixed(l.pf.textbook, 3)}${senseWord(l.senseTextbook)}`, `${fixed(l.pf.solved, 3)}${senseWord(l.senseSolved)}`, signed(l.pf.difference, 3)]);
+  }
+  if (r.neutralA) rows.push(['N', 'current A', orDash(r.neutralA.yours, 1), fixed(r.neutralA.textbook, 1), fixed(r.neutralA.solved, 1), signed(r.neutralA.difference, 1)]);
+  rows.push(['board', 'PF (vector)', orDash(r.boardPf.yours, 3), fixed(r.boardPf.textbook, 3), fixed(r.boardPf.solved, 3), signed(r.boardPf.difference, 3)]);
+  return {
+    kind: 'table',
+    caption: 'Predicted against solved, with your capacitors in',
+    columns: [{ label: 'Line' }, { label: 'Figure' }, num('Yours'), num('Textbook'), num('Solved'), num('Solved − textbook')],
+    rows,
+    note: 'Yours: the figures you expected (— where none given). Textbook: the per-phase method above. Solved: the board as trivar solves it with exactly your equipment.',
+  };
+}
+
+/**
+ * The effects as table rows — per line current, neutral current, per line PF, board PF — closed by
+ * their total (solved − textbook). Shared by the report and `trivar check`'s text.
+ */
+export function handCheckEffectRows(r: HandCheckResult): string[][] {
+  const hasN = r.neutralA !== null;
+  return [
+    ...r.effects.map((e) => [
+      e.title,
+      ...e.lines.map((l) => signed(l.currentA, 1)),
+      ...(hasN ? [e.neutralA === null ? '—' : signed(e.neutralA, 1)] : []),
+      ...e.lines.map((l) => signed(l.pf, 3)),
+      signed(e.boardPf, 3),
+    ]),
+    [
+      'total (solved − textbook)',
+      ...r.lines.map((l) => signed(l.currentA.difference, 1)),
+      ...(hasN ? [signed(r.neutralA!.difference, 1)] : []),
+      ...r.lines.map((l) => signed(l.pf.difference, 3)),
+      signed(r.boardPf.difference, 3),
+    ],
+  ];
+}
+
+function effectsTable(r: HandCheckResult): ReportBlock {
+  const phases = r.lines.map((l) => l.phase);
+  return {
+    kind: 'table',
+    caption: 'Where each difference comes from',
+    columns: [{ label: 'Effect' }, ...phases.map((p) => num(`${p} A`)), ...(r.neutralA !== null ? [num('N A')] : []), ...phases.map((p) => num(`${p} PF`)), num('Board PF')],
+    rows: handCheckEffectRows(r),
+    note: 'Each effect is switched on in turn, in this order, and the board solved again; its size is how far it moves each figure, so the sizes add up to the whole difference.',
+  };
+}
+
+/**
+ * The check of a hand calculation as a report section (id `hand-check`).
+ * @param triangles optional drawing of the line current triangles without and with the user's capacitors
+ */
+export function handCheckSection(r: HandCheckResult, triangles?: string): ReportSection {
+  const blocks: ReportBlock[] = [
+    {
+      kind: 'paragraph',
+      text: `The capacitors of your hand calculation were added to ${r.board.name} and the board solved again${r.targetPf !== null ? `; your target power factor is ${fixed(r.targetPf, 2)}` : ''}.`,
+    },
+    capacitorTable(r),
+    workingTable(r),
+    triangleTable(r),
+    comparedTable(r),
+    effectsTable(r),
+    { kind: 'list', items: r.effects.map((e) => `${e.title}: ${e.explanation}`) },
+  ];
+  if (triangles) blocks.push({ kind: 'figure', name: 'hand-check-triangles', caption: 'Line current triangles without and with your capacitors', svg: triangles });
+  return { id: 'hand-check', title: 'Hand calculation checked', blocks };
+}
