@@ -484,10 +484,13 @@ export class CompiledNetwork {
       leave(from, ir, ii);
       leave(to, -ir, -ii);
     };
-    for (const e of c.elements) if (this.isLiveEnd(e.from) && this.isLiveEnd(e.to)) through(e.from, e.to, e.admittance.re, e.admittance.im);
-    c.branches.forEach((b, k) => {
-      if (this.bActive[k]) through(b.from, b.to, this.admittanceRe[k]!, this.admittanceIm[k]!);
-    });
+    // Only the nodes of ideal sources need KCL; with none (every source behind an impedance) skip the sweep.
+    if (needKcl.size > 0) {
+      for (const e of c.elements) if (this.isLiveEnd(e.from) && this.isLiveEnd(e.to)) through(e.from, e.to, e.admittance.re, e.admittance.im);
+      c.branches.forEach((b, k) => {
+        if (this.bActive[k]) through(b.from, b.to, this.admittanceRe[k]!, this.admittanceIm[k]!);
+      });
+    }
     c.sources.forEach((s, k) => {
       if (!s.admittance) return;
       const a = v(s.plus);
