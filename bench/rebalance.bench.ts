@@ -15,8 +15,20 @@
  * Quality baseline: the largest-first kVA spread (each circuit, largest kVA
  * first, to the phase with the least kVA so far), scored the same way.
  */
-import { normaliseBoard, parseBoard, rebalanceBoard, solveBoardModel, type BoardSpec, type ConnectionSpec } from '../packages/core/src/index.js';
+import {
+  normaliseBoard,
+  normaliseInstallation,
+  parseBoard,
+  parseInstallation,
+  rebalanceBoard,
+  rebalanceInstallation,
+  solveBoardModel,
+  solveInstallationModel,
+  type BoardSpec,
+  type ConnectionSpec,
+} from '../packages/core/src/index.js';
 import { randomBoard, seeded, boardFigures } from '../test/rebalance/support/rebalanceBoards.js';
+import { randomInstallation } from '../test/rebalance/support/rebalanceInstallations.js';
 
 const quick = process.argv.includes('--quick');
 const seeds = quick ? [1, 2, 3] : [1, 2, 3, 4, 5, 6, 7, 8, 9, 10];
@@ -112,3 +124,39 @@ for (const [n, rows] of [[42, at42], [84, at84]] as const) {
     `  ${n} circuits: neutral ${share((r) => r.neutralKva).toFixed(1)} A → ${share((r) => r.neutralAfter).toFixed(3)} A; largest line ${share((r) => r.lineKva).toFixed(1)} A → ${share((r) => r.lineAfter).toFixed(1)} A`,
   );
 }
+
+/**
+ * Installations: a main board feeding a rising main of five floor boards in a chain (each floor fed
+ * from the one below) plus a plant board off the main board, circuits spread over the seven boards,
+ * cables and a transformer. Scored at every incomer (added), the default; the whole call includes
+ * the installation re-solves before and after.
+ */
+function installationRow(circuits: number, method: 'local-search' | 'exact', goalMs: number | null) {
+  const perBoard = Array.from({ length: 7 }, (_, b) => Math.floor((circuits + b) / 7));
+  const rows = seeds.map((seed) => {
+    const spec = randomInstallation({ system: 'three-phase-4wire', circuits: perBoard, parents: [0, 0, 2, 3, 4, 5], impedance: true, seed: circuits * 1000 + seed });
+    const model = normaliseInstallation(parseInstallation(spec)).installation;
+    const solveMs = bestOf(3, () => solveInstallationModel(model)).ms;
+    const { ms, cpuMs, value: r } = bestOf(3, () => rebalanceInstallation(model, {}, { method, moveTable: false }));
+    return { ms, cpuMs, ratio: ms / solveMs, proven: r.proven, gapPercent: r.score.gapPercent ?? NaN, nodes: r.search.nodes };
+  });
+  const cpu = rows.map((r) => r.cpuMs);
+  const ok = goalMs === null || Math.max(...cpu) < goalMs;
+  console.log(
+    [
+      `${`${circuits} circuits on 7 boards, ${method === 'exact' ? 'exact' : 'local'}`.padEnd(36)}`,
+      `CPU median ${median(cpu).toFixed(1).padStart(6)} ms, max ${Math.max(...cpu).toFixed(1).padStart(6)} ms`,
+      `(wall max ${Math.max(...rows.map((r) => r.ms)).toFixed(1)} ms)`,
+      `(${median(rows.map((r) => r.ratio)).toFixed(0)}× one installation solve)`,
+      method === 'exact'
+        ? `proven ${rows.filter((r) => r.proven).length}/${rows.length}, nodes ≤ ${Math.max(...rows.map((r) => r.nodes))}`
+        : `gap ≤ ${Math.max(...rows.map((r) => r.gapPercent)).toFixed(3)} %`,
+      goalMs === null ? '' : ok ? `goal < ${goalMs} ms: met` : `goal < ${goalMs} ms: MISSED`,
+    ].join('  '),
+  );
+}
+
+console.log('\nInstallations (score at every board incomer, added; same goals as a board of the same size):');
+installationRow(18, 'exact', 1000);
+installationRow(42, 'local-search', 50);
+if (!quick) installationRow(84, 'local-search', 200);

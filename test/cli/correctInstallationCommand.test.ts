@@ -1,5 +1,7 @@
 /** `trivar correct` on installation files (built binary): --board, the effect on every board, errors. */
-import { readdirSync, readFileSync } from 'node:fs';
+import { mkdtempSync, readdirSync, readFileSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { correctInstallation, normaliseInstallation, parseInstallation, readBoardText } from '@trivar/core';
 import { ROOT, runTrivar } from './runTrivar.js';
@@ -58,5 +60,31 @@ describe('trivar correct on an installation file', () => {
     const r = runTrivar(['correct', '-', '--board', 'Offices'], text);
     expect(r.code).toBe(3);
     expect(r.stderr).toContain('correction.target.pf');
+  });
+});
+
+describe('the file names the board: correction.board', () => {
+  const withSection = (section: string) => {
+    const dir = mkdtempSync(join(tmpdir(), 'trivar-correct-'));
+    const file = join(dir, 'works.yaml');
+    writeFileSync(file, `${readFileSync(`${ROOT}${works}`, 'utf8')}correction: ${section}\n`);
+    return file;
+  };
+
+  it('places the bank on that board, as --board does (and --board overrides it)', () => {
+    const file = withSection('{ board: Press shop, arrangement: star-bank }');
+    const fromFile = runTrivar(['correct', file, '--json']);
+    expect(fromFile.stderr).toBe('');
+    expect(fromFile.code).toBe(0);
+    const byOption = runTrivar(['correct', works, '--board', 'Press shop', '--arrangement', 'star-bank', '--json']);
+    expect(JSON.parse(fromFile.stdout)).toEqual(JSON.parse(byOption.stdout));
+    const overridden = JSON.parse(runTrivar(['correct', file, '--board', 'Offices', '--json']).stdout) as { board: string };
+    expect(overridden.board).toBe('Offices');
+  });
+
+  it('an unknown board there is an input error naming the field', () => {
+    const r = runTrivar(['correct', withSection('{ board: Loft, arrangement: star-bank }')]);
+    expect(r.code).toBe(3);
+    expect(r.stderr).toContain('correction.board: expected a board of this installation');
   });
 });

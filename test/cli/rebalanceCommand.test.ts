@@ -81,6 +81,31 @@ describe('trivar rebalance (built binary)', () => {
     expect(refused.code).toBe(2);
   });
 
+  it('--data: the peak intervals and a spread of typical ones become the load conditions', () => {
+    const dir = mkdtempSync(join(tmpdir(), 'trivar-rebalance-'));
+    const csv = join(dir, 'quay.csv');
+    const rows = ['time,flats A [kW],flats B [kW],flats C [kW],chargers [x],heat pumps [x],Roof PV [x]'];
+    for (let i = 0; i < 48; i++) {
+      const hour = i / 2;
+      const evening = hour >= 17 && hour < 22 ? 1 : 0.3;
+      const sun = hour >= 10 && hour < 16 ? 0.8 : 0;
+      rows.push(`2025-03-04T${String(Math.floor(hour)).padStart(2, '0')}:${i % 2 ? '30' : '00'}Z,${(9 * evening).toFixed(2)},${(5 * evening).toFixed(2)},${(12 * evening).toFixed(2)},${hour >= 18 ? 1 : 0},0.5,${sun}`);
+    }
+    writeFileSync(csv, `${rows.join('\n')}\n`);
+    const r = runTrivar(['rebalance', 'examples/quay-street-flats.yaml', '--data', csv, '--spread', '3', '--json', '--no-table']);
+    expect(r.stderr).toBe('');
+    expect(r.code).toBe(0);
+    const report = JSON.parse(r.stdout) as ReturnType<typeof rebalanceBoard>;
+    const names = report.conditions.map((c) => c.name);
+    for (const why of ['peak line A', 'peak line B', 'peak line C', 'peak neutral', 'peak import', 'peak export', 'quantile 50 %'])
+      expect(names.some((n) => n.includes(why))).toBe(true);
+    expectClose(report.conditions.reduce((s, c) => s + c.weight, 0), 24, { rel: 1e-12, abs: 1e-12 }, 'hours of the data');
+    expect(report.solvedScore.after).toBeLessThan(report.solvedScore.before);
+    const riserData = runTrivar(['rebalance', riser, '--data', csv]);
+    expect(riserData.code).toBe(2);
+    expect(riserData.stderr).toMatch(/--data: interval data drives one board/);
+  });
+
   it('refuses to write over its input', () => {
     const r = runTrivar(['rebalance', flats, '--write', flats]);
     expect(r.code).toBe(2);

@@ -2,7 +2,7 @@
 import { execFileSync } from 'node:child_process';
 import { mkdtempSync, readFileSync, readdirSync, writeFileSync, copyFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
-import { join } from 'node:path';
+import { dirname, join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { ROOT, runTrivar } from './runTrivar.js';
 import { isBoardExample } from '../support/boardExamples.js';
@@ -232,6 +232,56 @@ describe('trivar diagram on an installation', () => {
     const t = runTrivar(['diagram', 'examples/maple-court-riser.yaml', '--view', 'triangles']);
     expect(t.code).toBe(2);
     expect(t.stderr).toContain('correction study');
+  });
+});
+
+describe('correction at a board of an installation', () => {
+  /** Tannery Lane with the bank on its press-shop board (the file's correction.board). */
+  function tanneryWithBank(): string {
+    const file = join(scratch(), 'tannery.yaml');
+    writeFileSync(file, `${readFileSync(join(ROOT, 'examples/tannery-lane-works.yaml'), 'utf8')}correction: { board: Press shop, arrangement: delta-bank, target: { pf: 0.95 } }\n`);
+    return file;
+  }
+  type Effect = { board: string; boards: { name: string; vectorPf: { before: number; after: number } }[]; supply: { pf: { before: number; after: number } } };
+
+  it('the report shows the study at that board and its effect on every board, as trivar correct gives them', () => {
+    const file = tanneryWithBank();
+    const out = join(dirname(file), 'r.html');
+    const r = runTrivar(['report', file, '-o', out]);
+    expect(r.stderr).toBe('');
+    expect(r.code).toBe(0);
+    const html = readFileSync(out, 'utf8');
+    expect(html).toContain('<h2>Correction recommendation — Press shop</h2>');
+    const corrected = JSON.parse(runTrivar(['correct', file, '--json']).stdout) as { board: string; effect: Effect; report: { selection: { deliveredKvar: number } } };
+    expect(corrected.board).toBe('Press shop');
+    const correction = html.split('<section id="correction">')[1]!.split('</section>')[0]!;
+    expect(correction).toContain(`${corrected.report.selection.deliveredKvar.toFixed(1)} kvar delivered`);
+    const effect = html.split('<section id="correction-effect">')[1]!.split('</section>')[0]!;
+    for (const b of corrected.effect.boards) {
+      const pf = `${b.vectorPf.before.toFixed(3)} → ${b.vectorPf.after.toFixed(3)}`;
+      expect(effect).toMatch(new RegExp(`<td>${b.name}( \\(equipment here\\))?</td><td class="num">${pf}</td>`));
+    }
+    expect(effect).toContain('<td>Press shop (equipment here)</td>');
+    expect(effect).toContain(`${corrected.effect.supply.pf.before.toFixed(3)} → ${corrected.effect.supply.pf.after.toFixed(3)}`);
+    // --no-correction leaves it out.
+    expect(runTrivar(['report', file, '--no-correction', '-o', out]).code).toBe(0);
+    expect(readFileSync(out, 'utf8')).not.toContain('<section id="correction');
+  });
+
+  it('trivar diagram --with-correction and --view triangles draw the equipment board, or the board --board names', () => {
+    const file = tanneryWithBank();
+    const overlay = runTrivar(['diagram', file, '--with-correction']);
+    expect(overlay.code).toBe(0);
+    expect(overlay.stdout).toContain('Press shop · 0°');
+    expect(overlay.stdout).toContain('data-state="after"');
+    const main = runTrivar(['diagram', file, '--view', 'triangles', '--board', 'Main switchboard']);
+    expect(main.code).toBe(0);
+    expect(main.stdout).toContain('data-view="triangles"');
+    // The main incomer carries the press shop: its line currents fall with the bank there.
+    const before = [...main.stdout.matchAll(/data-state="before"[^>]*data-magnitude="([\d.]+)"/g)].map((m) => Number(m[1]));
+    const after = [...main.stdout.matchAll(/data-state="after"[^>]*data-magnitude="([\d.]+)"/g)].map((m) => Number(m[1]));
+    expect(before.length).toBeGreaterThan(0);
+    expect(Math.max(...after)).toBeLessThan(Math.max(...before));
   });
 });
 

@@ -80,4 +80,13 @@ describe('trivar solve (built binary)', () => {
     expect(r.code).toBe(0);
     expect(JSON.parse(r.stdout)).toEqual(JSON.parse(readFileSync(`${ROOT}packages/core/board.schema.json`, 'utf8')));
   });
+
+  it('schema --installation prints the installation JSON Schema shipped with core', () => {
+    const r = runTrivar(['schema', '--installation']);
+    expect(r.code).toBe(0);
+    const schema = JSON.parse(r.stdout);
+    expect(schema).toEqual(JSON.parse(readFileSync(`${ROOT}packages/core/installation.schema.json`, 'utf8')));
+    expect(schema.required).toEqual(['supply', 'boards']);
+    expect(schema.properties.boards.items.properties.loads.items.properties.connection.enum).toContain('L1-N');
+  });
 });

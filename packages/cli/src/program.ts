@@ -4,6 +4,7 @@ import { EXIT, exitCodeFor, messageFor } from './exitCodes.js';
 import { DEFAULT_MAX_INPUT_MB, type CliIo } from './io.js';
 // Each command's module loads when that command runs (esbuild splits them into chunks), so
 // `trivar solve` never parses the correction, harmonic, profile or report code.
+import type { SchemaCommandOptions } from './commands/schema.js';
 import type { CorrectCommandOptions } from './commands/correct.js';
 import type { ProfileCommandOptions } from './commands/profile.js';
 import type { RebalanceCommandOptions } from './commands/rebalance.js';
@@ -82,6 +83,7 @@ Examples:
   trivar rebalance examples/larkspur-court-flats.yaml --move-limit 3
   trivar rebalance examples/larkspur-court-flats.yaml --near-best 2 --write larkspur-moved.yaml
   trivar rebalance board.yaml --aim neutral=1,largest-line=0.5 --json
+  trivar rebalance examples/quay-street-flats.yaml --data quay-street.csv --combine weighted
   trivar rebalance examples/maple-court-riser.yaml --move-limit 4 --write riser-moved.yaml
   trivar rebalance examples/maple-court-riser.yaml --boards "Floor 3" --measure-at main
   trivar rebalance examples/maple-court-riser.yaml --aim voltage-unbalance --measure-at "Floor 4"
@@ -262,6 +264,9 @@ export function createProgram(io: CliIo, outcome: RunOutcome = { exitCode: EXIT.
     .option('--boards <names>', 'installations: only the circuits of these boards may move (comma-separated)', (v: string) => v.split(',').map((x) => x.trim()).filter(Boolean))
     .option('--measure-at <where>', 'installations: score each board\'s incomer ("each", default), the main incomer ("main") or one board\'s incomer and voltage (its name)')
     .option('--scenarios', 'use the profile section\'s scenarios as the load conditions, weighted by their hours')
+    .option('--data <csv>', 'interval data (as for trivar profile): its peak intervals and a spread of typical ones become the load conditions')
+    .option('--spread <n>', 'with --data: typical intervals picked besides the peaks (default 8)', anyNumber)
+    .option('--time-zone <zone>', 'with --data: IANA zone of timestamps written without an offset (default UTC)')
     .addOption(new Option('--method <how>', 'search: exact branch-and-bound, local search, or auto by board size').choices(['auto', 'exact', 'local-search']))
     .option('--no-table', 'skip the table of the best score by moves allowed')
     .option('--write <file>', 'save the board file with the moves made (never the input file)')
@@ -319,9 +324,10 @@ export function createProgram(io: CliIo, outcome: RunOutcome = { exitCode: EXIT.
   program
     .command('schema')
     .description('print the JSON Schema of board files (for editor completion and checking)')
-    .action(async () => {
+    .option('--installation', 'the schema of installation files (boards: fed from each other) instead')
+    .action(async (opts: SchemaCommandOptions) => {
       const { runSchema } = await import('./commands/schema.js');
-      runSchema(io);
+      runSchema(io, opts);
     });
 
   return program;

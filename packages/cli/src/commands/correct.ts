@@ -71,8 +71,12 @@ function runCorrectInstallation(input: unknown, options: CorrectCommandOptions, 
   const { installation } = normaliseInstallation(spec);
   // Checked before the study, so the error names the option, not the file's correction section.
   installationBoardIndex(installation, options.board, '--board');
-  const study = studySpec(spec.correction as Record<string, unknown> | undefined, options);
-  const placement = options.board === undefined ? {} : { board: options.board };
+  // The file's correction.board places the equipment (--board overrides it); it is not part of the study itself.
+  const { board: fileBoard, ...fromFile } = spec.correction ?? {};
+  if (fileBoard !== undefined) installationBoardIndex(installation, fileBoard, 'correction.board');
+  const study = studySpec(fromFile as Record<string, unknown>, options);
+  const boardName = options.board ?? fileBoard;
+  const placement = boardName === undefined ? {} : { board: boardName };
   try {
     if (study.arrangement === undefined) {
       const compared = compareInstallationCorrections(installation, study, placement);

@@ -1,6 +1,7 @@
 /** `trivar diagram`: draw a solved board's phasors, sequence components or current triangles, or an installation's one-line drawing, as SVG. */
 import {
   correctBoard,
+  correctInstallation,
   isInstallationInput,
   normaliseBoard,
   normaliseInstallation,
@@ -43,22 +44,39 @@ function drawBoard(raw: unknown, view: DiagramView, options: DiagramCommandOptio
   const spec = parseBoard(raw);
   const board = normaliseBoard(spec);
   if (view === 'triangles' || options.withCorrection) {
-    if (!spec.correction?.arrangement)
-      throw new UsageError(`the ${view === 'triangles' ? 'triangles view' : '--with-correction option'} needs a correction study: add a "correction:" section with an arrangement to the board file (see trivar correct --help)`);
+    if (!spec.correction?.arrangement) throw new UsageError(needsStudy(view));
     const v = correctBoard(board, spec.correction).verification;
-    return view === 'triangles' ? renderCurrentTriangles(v.before, v.after) : view === 'sequence' ? renderSequenceDiagram(v.after, { title: 'Symmetrical components with the correction in place' }) : renderPhasorDiagram(v.before, { after: v.after });
+    return drawCorrected(v.before, v.after, view);
   }
   return drawSolved(solveBoardModel(board), view);
 }
 
+/** Before/after drawings of one board from the file's correction study, for a board file or an installation. */
+function drawCorrected(before: BoardResult, after: BoardResult, view: DiagramView): string {
+  return view === 'triangles' ? renderCurrentTriangles(before, after) : view === 'sequence' ? renderSequenceDiagram(after, { title: 'Symmetrical components with the correction in place' }) : renderPhasorDiagram(before, { after });
+}
+
+const needsStudy = (view: DiagramView) =>
+  `the ${view === 'triangles' ? 'triangles view' : '--with-correction option'} needs a correction study: add a "correction:" section with an arrangement to the file (see trivar correct --help)`;
+
 function drawInstallation(raw: unknown, view: DiagramView, options: DiagramCommandOptions): string {
-  if (view === 'triangles' || options.withCorrection)
-    throw new UsageError(`the ${view === 'triangles' ? 'triangles view' : '--with-correction option'} draws a correction study, which this command runs on single board files; on an installation choose --view phasors, sequence or one-line`);
-  const result = solveInstallationModel(normaliseInstallation(parseInstallation(raw)).installation);
+  const spec = parseInstallation(raw);
+  const { installation } = normaliseInstallation(spec);
   if (view === 'one-line') {
     if (options.board !== undefined) throw new UsageError('the one-line view draws the whole installation: leave out --board, or choose --view phasors or sequence for one board');
-    return renderOneLineDiagram(result);
+    if (options.withCorrection) throw new UsageError('the one-line view draws the installation as solved: leave out --with-correction');
+    return renderOneLineDiagram(solveInstallationModel(installation));
   }
+  if (view === 'triangles' || options.withCorrection) {
+    if (!spec.correction?.arrangement) throw new UsageError(needsStudy(view));
+    // The equipment goes on the board the study names; the drawing shows --board (default: that board).
+    const { board: equipmentBoard, ...study } = spec.correction;
+    const effect = correctInstallation(installation, study, equipmentBoard === undefined ? {} : { board: equipmentBoard }).effect;
+    const name = chooseBoard([effect.board, ...effect.before.boards.map((b) => b.name).filter((n) => n !== effect.board)], options.board);
+    const at = (r: typeof effect.before) => r.boards.find((b) => b.name === name)!.result;
+    return drawCorrected(at(effect.before), at(effect.after), view);
+  }
+  const result = solveInstallationModel(installation);
   const name = chooseBoard(result.boards.map((b) => b.name), options.board);
   return drawSolved(result.boards.find((b) => b.name === name)!.result, view);
 }

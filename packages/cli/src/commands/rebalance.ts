@@ -1,7 +1,14 @@
 /** `trivar rebalance`: which circuits to move to which phase, on a board or any board of an installation; optional rewritten file. */
 import { existsSync, realpathSync, statSync, writeFileSync } from 'node:fs';
 import { resolve } from 'node:path';
+import { availableParallelism } from 'node:os';
 import {
+  checkIntervalSequence,
+  conditionsFromIntervals,
+  driverColumns,
+  isKnownTimeZone,
+  planColumns,
+  planDrivers,
   InputError,
   isInstallationInput,
   normaliseBoard,
@@ -12,9 +19,13 @@ import {
   rebalanceBoard,
   rebalanceInstallation,
   rewriteBoardText,
+  type Board,
+  type BoardSpec,
+  type IntervalConditions,
   type RebalanceOptions,
   type RebalanceReport,
 } from '@trivar/core';
+import { readCsvHeader, readIntervalRows } from '../read/intervalCsv.js';
 import type { CliIo } from '../io.js';
 import { UsageError } from '../exitCodes.js';
 import { renderRebalanceReport } from '../format/rebalanceReport.js';
@@ -29,6 +40,9 @@ export interface RebalanceCommandOptions {
   readonly boards?: string[];
   readonly measureAt?: string;
   readonly scenarios?: boolean;
+  readonly data?: string;
+  readonly spread?: number;
+  readonly timeZone?: string;
   readonly method?: 'auto' | 'exact' | 'local-search';
   readonly table?: boolean;
   readonly write?: string;
@@ -58,7 +72,23 @@ function sameFile(a: string, b: string): boolean {
   return sa.dev === sb.dev && sa.ino === sb.ino;
 }
 
+/** Interval data → representative intervals as load conditions (rule in core's intervalConditions.ts). */
+async function intervalConditions(spec: BoardSpec, board: Board, data: string, o: RebalanceCommandOptions): Promise<IntervalConditions> {
+  const zone = o.timeZone ?? 'UTC';
+  if (!isKnownTimeZone(zone)) throw new UsageError(`--time-zone: "${zone}" is not a time zone this system knows (expected an IANA name such as Europe/Lisbon or America/Chicago)`);
+  if (o.spread !== undefined && !(Number.isInteger(o.spread) && o.spread >= 0 && o.spread <= 50))
+    throw new UsageError(`--spread: expected a whole number from 0 to 50 (received ${o.spread})`);
+  const plan = planColumns(board, readCsvHeader(data), spec.profile?.groups ? { groups: spec.profile.groups } : {});
+  const raw = await readIntervalRows(data, plan, { timeZone: zone }, Math.min(2, availableParallelism()));
+  const table = checkIntervalSequence(raw, 'none');
+  return conditionsFromIntervals(plan.board, planDrivers(plan), driverColumns(plan, table.values, table.count), table.utcMs, table.intervalMs, {
+    ...(o.spread !== undefined ? { spread: o.spread } : {}),
+  });
+}
+
 export async function runRebalance(file: string, options: RebalanceCommandOptions, io: CliIo): Promise<RebalanceReport> {
+  if (options.write !== undefined && options.data !== undefined && sameFile(options.write, options.data))
+    throw new UsageError(`--write ${options.write}: that is the interval data being read; write the rebalanced board to another file`);
   if (options.write !== undefined && file !== '-' && sameFile(options.write, file))
     throw new UsageError(`--write ${options.write}: that is the board file being read; write the rebalanced board to another file`);
   const text = await io.readSource(file);
@@ -70,13 +100,19 @@ export async function runRebalance(file: string, options: RebalanceCommandOption
   let report: RebalanceReport;
   try {
     if (isInstallationInput(input)) {
+      if (options.data !== undefined) throw new UsageError('--data: interval data drives one board; for an installation give load conditions in its rebalance section');
       const spec = parseInstallation(input);
       const study = studySpec(spec.rebalance as Record<string, unknown> | undefined, options);
       report = rebalanceInstallation(normaliseInstallation(spec).installation, study, search);
     } else {
       const spec = parseBoard(input);
       const study = studySpec(spec.rebalance as Record<string, unknown> | undefined, options);
-      report = rebalanceBoard(normaliseBoard(spec), study, { ...search, profile: spec.profile });
+      const board = normaliseBoard(spec);
+      if (options.data !== undefined) {
+        const picked = await intervalConditions(spec, board, options.data, options);
+        const { conditions: _c, ...rest } = study;
+        report = rebalanceBoard(picked.board, rest, { ...search, loadConditions: picked.conditions });
+      } else report = rebalanceBoard(board, study, { ...search, profile: spec.profile });
     }
   } catch (error) {
     if (error instanceof InputError && error.heading.startsWith('the rebalancing study'))

@@ -6,6 +6,7 @@ import {
   buildInstallationReport,
   checkHandFigures,
   correctBoard,
+  correctInstallation,
   InputError,
   isInstallationInput,
   normaliseBoard,
@@ -21,6 +22,8 @@ import {
   solveInstallationModel,
   studyHarmonics,
   type Board,
+  type Installation,
+  type InstallationSpec,
   type BoardSpec,
   type ReportDocument,
   type ReportSection,
@@ -87,14 +90,23 @@ async function boardDocument(raw: unknown, figures: unknown, options: ReportComm
   return buildBoardReport({ spec, result, correction, harmonics, studySections, handCheck });
 }
 
+/** The installation file's correction study on the board it names (default the main board). */
+function installationCorrectionOf(installation: Installation, section: NonNullable<InstallationSpec['correction']>) {
+  const { board, ...study } = section;
+  const c = correctInstallation(installation, study, board === undefined ? {} : { board });
+  return { board: c.board, report: c.report, effect: c.effect };
+}
+
 function installationDocument(raw: unknown, figures: unknown, options: ReportCommandOptions): ReportDocument {
   if (options.profileData) throw new UsageError("--profile-data applies to a single board file: interval data describe one board; give that board's own file");
   // The hand method works on one board and its own loads; a board inside an installation also carries the
   // boards beyond it and the drops before it, which the hand check's effects do not separate.
   if (figures !== null) throw new UsageError('--hand-figures checks a hand calculation on a single board file; this is an installation (boards:) — give the board as its own file');
   const spec = parseInstallation(raw);
-  const result = solveInstallationModel(normaliseInstallation(spec).installation);
-  return buildInstallationReport({ spec, result });
+  const { installation } = normaliseInstallation(spec);
+  const result = solveInstallationModel(installation);
+  const correction = options.correction !== false && spec.correction?.arrangement ? installationCorrectionOf(installation, spec.correction) : null;
+  return buildInstallationReport({ spec, result, correction });
 }
 
 export async function runReport(file: string, options: ReportCommandOptions, io: CliIo, footer: string): Promise<void> {

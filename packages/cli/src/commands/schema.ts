@@ -1,7 +1,11 @@
-/** `trivar schema`: print the JSON Schema of board files. */
-import { boardJsonSchema } from '@trivar/core';
+/** `trivar schema`: print the JSON Schema of board files, or of installation files. */
+import { boardJsonSchema, installationJsonSchema } from '@trivar/core';
 import type { CliIo } from '../io.js';
 
-export function runSchema(io: CliIo): void {
-  io.stdout(`${JSON.stringify(boardJsonSchema(), null, 2)}\n`);
+export interface SchemaCommandOptions {
+  readonly installation?: boolean;
+}
+
+export function runSchema(io: CliIo, options: SchemaCommandOptions = {}): void {
+  io.stdout(`${JSON.stringify(options.installation ? installationJsonSchema() : boardJsonSchema(), null, 2)}\n`);
 }

@@ -1,5 +1,5 @@
 /** InstallationResult → the text report of `trivar solve` on an installation: a summary per board and per feeder. */
-import type { InstallationResult } from '@trivar/core';
+import { bandWords, labelIn, type InstallationResult } from '@trivar/core';
 import { fixed, renderTable, section } from './textTable.js';
 import { renderSolveReport } from './solveReport.js';
 import { REPORT_WIDTH, wrapText } from './wrapText.js';
@@ -16,6 +16,16 @@ const SYSTEM_WORDS: Record<string, string> = {
 /** Board names indented by their depth in the tree, so the table reads as the riser does. */
 const treeName = (name: string, depth: number) => `${'  '.repeat(depth - 1)}${depth > 1 ? '└ ' : ''}${name}`;
 
+const VERDICT_CELL = { within: 'ok', under: 'UNDER', over: 'OVER', 'under-and-over': 'UNDER+OVER' } as const;
+
+/** One line for the whole installation, from the same per-board verdicts the table shows. */
+function limitsLine(r: InstallationResult): string {
+  const limits = r.boards[0]!.result.voltageCheck.limits;
+  const outside = r.boards.filter((b) => b.result.voltageCheck.verdict !== 'within');
+  const verdict = outside.length === 0 ? 'every board within' : `outside at ${outside.map((b) => `${b.name} (${VERDICT_CELL[b.result.voltageCheck.verdict].toLowerCase()})`).join(', ')}`;
+  return wrapText(`voltage limits ${bandWords(limits)} (${limits.preset}): ${verdict}`, '  ');
+}
+
 function boardTable(r: InstallationResult): string {
   const rows = r.boards.map((b) => {
     const res = b.result;
@@ -29,6 +39,7 @@ function boardTable(r: InstallationResult): string {
       fixed(res.totals.kW, 2),
       fixed(res.totals.kvar, 2),
       fixed(res.source.kW, 2),
+      VERDICT_CELL[res.voltageCheck.verdict],
       String(res.warnings.length || ''),
     ];
   });
@@ -42,6 +53,7 @@ function boardTable(r: InstallationResult): string {
       { header: 'own kW' },
       { header: 'own kvar' },
       { header: 'fed kW' },
+      { header: 'limits', align: 'left' },
       { header: 'warnings' },
     ],
     rows,
@@ -63,7 +75,7 @@ function feederTable(r: InstallationResult): string {
     [
       { header: 'to', align: 'left' },
       { header: 'from', align: 'left' },
-      ...phases.map((p) => ({ header: `${p} A` })),
+      ...phases.map((p) => ({ header: `${labelIn(r.boards[0]!.result.conventions.phaseNames, p)} A` })),
       ...(hasNeutral ? [{ header: 'N A' }] : []),
       { header: 'drop %' },
       { header: 'loss kW' },
@@ -101,6 +113,7 @@ export function renderInstallationReport(r: InstallationResult, options: Install
         `  losses      ${fixed(t.lossesKW, 3)} kW  (source windings and every feeder)`,
         `  from source ${fixed(t.sourceKW, 3)} kW  ${fixed(t.sourceKvar, 3)} kvar`,
         `  lowest phase voltage ${fixed(t.lowestVoltagePercent, 1)} % of nominal, at ${t.lowestVoltageBoard}`,
+        limitsLine(r),
       ].join('\n'),
     section('Warnings') + (warnings.length ? warnings.join('\n') : '  none'),
   ];

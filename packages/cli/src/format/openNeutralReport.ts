@@ -5,13 +5,13 @@ import { REPORT_WIDTH, wrapText } from './wrapText.js';
 
 const flagWord = (f: OpenNeutralLoadReading['flag']) => (f === 'ok' ? '' : f === 'over' ? 'OVER' : 'under');
 
-export function openNeutralBlock(study: OpenNeutralStudy): string {
+export function openNeutralBlock(study: OpenNeutralStudy, label: (phase: string) => string = (p) => p): string {
   if (!study.applicable) return wrapText(`not applicable: ${study.note ?? ''}`, '  ');
   const other = study.otherStates[0];
   const impedance = study.impedanceModel;
   const rows = study.loads.map((l, k) => [
     l.name,
-    l.phase,
+    label(l.phase),
     `${fixed(l.voltage, 1)}${l.belowLowVoltageRule ? '*' : ''}`,
     fixed(l.voltagePercent, 1),
     flagWord(l.flag),

@@ -1,5 +1,5 @@
 /** BoardResult → the human-readable report of `trivar solve`. */
-import type { BoardResult } from '@trivar/core';
+import { bandWords, labelIn, type BoardResult } from '@trivar/core';
 import { fixed, renderTable, renderTableWithin, section } from './textTable.js';
 import { REPORT_WIDTH, wrapText } from './wrapText.js';
 import { exportSentence, isExport, pfCell, varWords } from './powerFlowWords.js';
@@ -24,12 +24,23 @@ function dropDefinition(r: BoardResult): string {
   return `drop: open-circuit source voltage minus the voltage line-to-neutral loads see — ${to} — in % of nominal; negative is a rise.`;
 }
 
+/** A phase, line pair or connection (A/B/C inside) as this board's report labels it. */
+export const labeller = (r: BoardResult) => (term: string) => labelIn(r.conventions.phaseNames, term);
+
+/** The voltage-limit verdict, judged on the printed figures as the warnings are. */
+export function voltageVerdictLine(r: BoardResult): string {
+  const c = r.voltageCheck;
+  const verdict = { within: 'every voltage within', under: 'BELOW the lower limit', over: 'ABOVE the upper limit', 'under-and-over': 'OUTSIDE both limits' }[c.verdict];
+  return `${verdict} ${bandWords(c.limits)} (${c.limits.preset}); lowest ${fixed(c.lowest.percent, 1)} % at ${c.lowest.at}, highest ${fixed(c.highest.percent, 1)} % at ${c.highest.at}`;
+}
+
 export function headerLines(r: BoardResult): string[] {
   const b = r.board;
+  const label = labeller(r);
   const volts = b.nominalLineToLineV
     ? `${fixed(b.nominalLineToLineV, 0)} V line-to-line, ${fixed(b.nominalLineToNeutralV, 1)} V line-to-neutral`
     : `${fixed(b.nominalLineToNeutralV, 0)} V`;
-  const seq = b.system.startsWith('three') ? ` · sequence ${b.sequence}` : '';
+  const seq = b.system.startsWith('three') ? ` · sequence ${label(b.sequence)}` : '';
   return [
     wrapText(b.name, ''),
     `${SYSTEM_WORDS[b.system] ?? b.system} · ${volts} · ${b.frequencyHz} Hz${seq}${b.neutralOpen ? ' · NEUTRAL OPEN' : ''}`,
@@ -37,8 +48,9 @@ export function headerLines(r: BoardResult): string[] {
 }
 
 function phaseTable(r: BoardResult): string {
+  const label = labeller(r);
   const rows = r.phases.map((p) => [
-    p.phase,
+    label(p.phase),
     fixed(p.voltage.magnitude, 1),
     fixed(p.voltage.angleDeg, 1),
     fixed(p.voltagePercent, 1),
@@ -80,24 +92,25 @@ function phaseTable(r: BoardResult): string {
     ],
     rows,
   );
-  const ll = r.lineToLine.map((l) => `${l.pair} ${fixed(l.voltage.magnitude, 1)} V (${fixed(l.voltagePercent, 1)} %)`).join('   ');
+  const ll = r.lineToLine.map((l) => `${label(l.pair)} ${fixed(l.voltage.magnitude, 1)} V (${fixed(l.voltagePercent, 1)} %)`).join('   ');
   const notes = [dropDefinition(r)];
   if (r.neutral) notes.push('N row: neutral bar voltage to the source star point, and the neutral current.');
   if (r.loads.some((l) => /^[ABC]-[ABC]$|delta/.test(l.connection)))
     notes.push('Line-to-line loads split their power unevenly between their two lines: one line leads, the other lags.');
   for (const p of r.phases) {
-    const sentence = exportSentence(`Line ${p.phase}`, p, 'exports');
+    const sentence = exportSentence(`Line ${label(p.phase)}`, p, 'exports');
     if (sentence) notes.push(sentence);
   }
   return [table, ...notes.map(note), ...(ll ? [`  line-to-line: ${ll}`] : [])].join('\n');
 }
 
 function loadTable(r: BoardResult): string {
+  const label = labeller(r);
   const rows = r.loads.map((l) => {
     const worst = l.branches.reduce((a, b) => (Math.abs(b.voltagePercent - 100) > Math.abs(a.voltagePercent - 100) ? b : a));
     return [
       l.name,
-      l.connection,
+      label(l.connection),
       MODEL_SHORT[l.model] ?? l.model,
       l.energised ? fixed(worst.voltage.magnitude, 1) : 'dead',
       l.energised ? fixed(worst.voltagePercent, 1) : '',
@@ -107,7 +120,16 @@ function loadTable(r: BoardResult): string {
       `${pfCell(l)}${l.pfAssumed ? ' *' : ''}`,
     ];
   });
+  // Panel-schedule columns only when the file gives them, so a plain board's table stays as narrow as before.
+  const scheduled = r.loads.some((l) => l.circuit !== null || l.breakerA !== null || l.poles !== null);
+  if (scheduled)
+    rows.forEach((row, k) => {
+      const l = r.loads[k]!;
+      row.unshift(l.circuit ?? '');
+      row.push([l.breakerA !== null ? `${fixed(l.breakerA, 0)} A` : '', l.poles !== null ? `${l.poles}P` : ''].filter(Boolean).join(' '));
+    });
   const notes = ['model: P constant power, I constant current, Z constant impedance, ZIP a mix · V: the worst branch voltage.'];
+  if (scheduled) notes.push('no.: circuit number · breaker: rating and poles, as given in the file.');
   const asDelta = r.loads.filter(solvedAsEquivalentDelta).map((l) => `"${l.name}"`);
   if (asDelta.length)
     notes.push(
@@ -120,6 +142,7 @@ function loadTable(r: BoardResult): string {
   }
   return [renderTableWithin(
     [
+      ...(scheduled ? [{ header: 'no.', align: 'left' as const }] : []),
       { header: 'circuit', align: 'left' },
       { header: 'on', align: 'left' },
       { header: 'model', align: 'left' },
@@ -129,8 +152,10 @@ function loadTable(r: BoardResult): string {
       { header: 'kW' },
       { header: 'kvar' },
       { header: 'PF', align: 'left' },
+      ...(scheduled ? [{ header: 'breaker', align: 'left' as const }] : []),
     ],
     rows,
+    scheduled ? 1 : 0,
   ), ...notes.map(note)].join('\n');
 }
 
@@ -213,7 +238,8 @@ export function renderSolveReport(r: BoardResult): string {
     section('Apparent power and power factor') + powerFactorBlock(r),
     section('Power balance') + powerBlock(r),
   ];
-  if (r.openNeutral) parts.push(section('If the neutral conductor broke') + openNeutralBlock(r.openNeutral));
+  parts.push(section('Voltage limits') + wrapText(voltageVerdictLine(r), '  ') + `\n${wrapText(r.voltageCheck.limits.source, '  (', '   ', REPORT_WIDTH - 1)})`);
+  if (r.openNeutral) parts.push(section('If the neutral conductor broke') + openNeutralBlock(r.openNeutral, labeller(r)));
   parts.push(section('Warnings') + (r.warnings.length ? r.warnings.map((w) => wrapText(w.message, '  ! ')).join('\n') : '  none'));
   parts.push(section('Notes') + r.cautions.map((c) => wrapText(c, '  * ')).join('\n'));
   return `${parts.join('\n')}\n`;

@@ -50,6 +50,10 @@ export function inputIssuesFromZod(issues: readonly core.$ZodIssue[], root: unkn
       const inside = issue.errors.filter((branch) => branch.length > 0 && branch.every((i) => i.path.length > 0));
       const closest = inside.sort((a, b) => a.length - b.length)[0];
       if (closest) return inputIssuesFromZod(closest, valueAt(root, issue.path), path);
+      // A form that took the value's kind and refused its content with its own code (a voltage
+      // notation with an impossible ratio) says why, rather than "an object or a text".
+      const refused = issue.errors.find((branch) => branch.length > 0 && branch.every((i) => i.code === 'custom' && typeof i.params?.code === 'string'));
+      if (refused) return inputIssuesFromZod(refused, valueAt(root, issue.path), path);
     }
     if (issue.code === 'unrecognized_keys')
       return issue.keys.map((key) => inputIssue('unknown_key', formatPath([...path, key]), 'only the documented keys (see the board JSON Schema)', key));

@@ -9,6 +9,9 @@ import { terminalVoltage, type NetworkSolution } from '../network/solveNetwork.j
 import { sequenceComponents } from './symmetricalComponents.js';
 import { deviationFromAveragePercent, motorDeratingFactor } from './unbalanceIndices.js';
 import { boardPowerDefinitions } from './powerDefinitions.js';
+import { conventionsOf } from '../board/conventions/boardConventions.js';
+import { labelIn } from '../board/conventions/phaseNames.js';
+import { checkVoltages } from './voltageCheck.js';
 import { boardWarnings, GENERAL_CAUTION, NEUTRAL_CAUTION } from './boardWarnings.js';
 import { readLoads } from './readLoads.js';
 import { powerReading } from './powerReading.js';
@@ -163,7 +166,11 @@ export function analyseSolution(solved: NetworkSolution): BoardResult {
   const belowThreshold = loadsBelowThreshold(solution);
   const transformer = readTransformer(solution);
   const operatingPoint = judgeOperatingPoint(solution, phases, lineToLine, belowThreshold);
-  const warnings = boardWarnings({ belowThreshold, phases, neutral, unbalance, loads, lineRatingA: board.lineRatingA, transformer });
+  const conventions = conventionsOf(board);
+  const label = (term: string) => labelIn(conventions.phaseNames, term);
+  const limits = conventions.voltageLimits;
+  const warnings = boardWarnings({ belowThreshold, phases, neutral, unbalance, loads, lineRatingA: board.lineRatingA, transformer, limits, label, lineToLine, hasNeutral: board.hasNeutral });
+  const voltageCheck = checkVoltages({ limits, phases, lineToLine, hasNeutral: board.hasNeutral, loads, label });
   const cautions = warnings.some((w) => w.code.startsWith('neutral')) ? [NEUTRAL_CAUTION, GENERAL_CAUTION] : [GENERAL_CAUTION];
   return {
     board: {
@@ -175,6 +182,7 @@ export function analyseSolution(solved: NetworkSolution): BoardResult {
       nominalLineToLineV: board.nominalLineToLineV,
       neutralOpen: board.neutralOpen,
     },
+    conventions,
     solve: { iterations: solution.iterations, lastChangePercent: solution.lastChange * 100 },
     phases,
     lineToLine,
@@ -186,6 +194,7 @@ export function analyseSolution(solved: NetworkSolution): BoardResult {
     sequences: seq?.sequences ?? null,
     unbalance,
     powerFactor,
+    voltageCheck,
     warnings,
     cautions,
     openNeutral: null,

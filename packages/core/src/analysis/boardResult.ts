@@ -11,6 +11,8 @@ import type { Phasor } from '../complex.js';
 import type { PhaseId } from '../board/boardModel.js';
 import type { SequenceSet } from './symmetricalComponents.js';
 import type { BoardPowerDefinitions } from './powerDefinitions.js';
+import type { BoardConventions } from '../board/conventions/boardConventions.js';
+import type { VoltageCheck } from './voltageCheck.js';
 
 /** `none` when no power flows (no PF). */
 export type PowerFactorSense = 'lagging' | 'leading' | 'unity' | 'none';
@@ -78,6 +80,12 @@ export interface LoadReading extends PowerReading {
   readonly currentA: number;
   /** Floating star point: its voltage to the centroid of the line voltages, V. */
   readonly starPointShift: Phasor | null;
+  /** Circuit number or way from the file (`circuit`); null when not given. */
+  readonly circuit: string | null;
+  /** Breaker or fuse rating from the file, A; null when not given. */
+  readonly breakerA: number | null;
+  /** Breaker poles from the file (checked against the connection); null when not given. */
+  readonly poles: 1 | 2 | 3 | null;
   readonly energised: boolean;
   /** Present when the board file gave kW without pf: pf 1 (resistive) was taken. */
   readonly pfAssumed?: true;
@@ -228,6 +236,11 @@ export interface BoardResult {
     readonly nominalLineToLineV: number | null;
     readonly neutralOpen: boolean;
   };
+  /**
+   * Region, phase labels and voltage limits the report follows. Keys in this result stay
+   * A/B/C whatever the naming; `conventions.phaseLabels` gives each phase's label.
+   */
+  readonly conventions: BoardConventions;
   readonly solve: { readonly iterations: number; readonly lastChangePercent: number };
   readonly phases: readonly PhaseReading[];
   readonly lineToLine: readonly LineToLineReading[];
@@ -245,6 +258,8 @@ export interface BoardResult {
   readonly sequences: { readonly voltage: SequenceSet<Phasor>; readonly current: SequenceSet<Phasor> } | null;
   readonly unbalance: UnbalanceReading | null;
   readonly powerFactor: BoardPowerDefinitions;
+  /** Board and load voltages against `conventions.voltageLimits`; agrees with the voltage warnings. */
+  readonly voltageCheck: VoltageCheck;
   readonly warnings: readonly BoardWarning[];
   readonly cautions: readonly string[];
   readonly openNeutral: OpenNeutralStudy | null;

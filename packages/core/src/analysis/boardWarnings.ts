@@ -2,12 +2,13 @@
  * Warnings with their thresholds stated, and the cautions shown with results.
  * All wording for board results lives here.
  */
-import type { BoardWarning, NeutralReading, PhaseReading, LoadReading, TransformerReading, UnbalanceReading } from './boardResult.js';
+import type { BoardWarning, NeutralReading, PhaseReading, LoadReading, TransformerReading, UnbalanceReading, LineToLineReading } from './boardResult.js';
+import { bandWords, judgeVoltage, presetLimits, type VoltageLimits } from '../board/conventions/voltageLimits.js';
 
 export const WARNING_THRESHOLDS = {
   /** Voltage unbalance factor above which supply-quality standards start to object (EN 50160, IEC 61000-2-2: 2 %). */
   voltageUnbalancePercent: 2,
-  /** Supply band used for the voltage check: ±10 % of nominal (EN 50160 LV band). */
+  /** Supply band of the open-neutral study's flags: ±10 % of nominal (EN 50160 LV band). Board voltages follow the board's `conventions.voltageLimits`. */
   voltageBandPercent: 10,
 } as const;
 
@@ -24,9 +25,18 @@ export function boardWarnings(input: {
   readonly loads: readonly LoadReading[];
   readonly lineRatingA: number | null;
   readonly transformer?: TransformerReading | null;
+  /** The limits voltages are judged against; default EN 50160's ±10 %. */
+  readonly limits?: VoltageLimits;
+  /** Report label of a phase or line pair (`A` → `L1`); default as is. */
+  readonly label?: (phaseOrPair: string) => string;
+  /** Board voltages judged against the limits: line-to-line on a board without a neutral. */
+  readonly lineToLine?: readonly LineToLineReading[];
+  readonly hasNeutral?: boolean;
 }): BoardWarning[] {
   const out: BoardWarning[] = [];
   const { phases, neutral, unbalance, loads, lineRatingA } = input;
+  const label = input.label ?? ((t: string) => t);
+  const limits = input.limits ?? presetLimits('en50160-supply');
   const smallest = Math.min(...phases.map((p) => p.current.magnitude));
   const largest = Math.max(...phases.map((p) => p.current.magnitude));
   if (neutral && phases.length > 1 && neutral.current.magnitude > smallest && neutral.current.magnitude > 0.01 * largest)
@@ -48,7 +58,7 @@ export function boardWarnings(input: {
       if (p.current.magnitude > lineRatingA)
         out.push({
           code: 'line-over-rating',
-          message: `phase ${p.phase} carries ${fmt(p.current.magnitude)} A, above the line rating of ${fmt(lineRatingA)} A`,
+          message: `phase ${label(p.phase)} carries ${fmt(p.current.magnitude)} A, above the line rating of ${fmt(lineRatingA)} A`,
           value: p.current.magnitude,
           threshold: lineRatingA,
         });
@@ -59,16 +69,31 @@ export function boardWarnings(input: {
       value: unbalance.voltageFactorPercent,
       threshold: WARNING_THRESHOLDS.voltageUnbalancePercent,
     });
-  const band = WARNING_THRESHOLDS.voltageBandPercent;
+  const band = bandWords(limits);
+  const limitOf = (side: 'under' | 'over') => (side === 'under' ? 100 - limits.underPercent : 100 + limits.overPercent);
+  const boardVoltages =
+    input.hasNeutral === false && input.lineToLine?.length
+      ? input.lineToLine.map((l) => ({ at: `line-to-line ${label(l.pair)}`, percent: l.voltagePercent, volts: l.voltage.magnitude }))
+      : phases.map((p) => ({ at: `phase ${label(p.phase)}`, percent: p.voltagePercent, volts: p.voltage.magnitude }));
+  for (const v of boardVoltages) {
+    const side = judgeVoltage(limits, v.percent);
+    if (side !== 'within')
+      out.push({
+        code: side === 'over' ? 'board-overvoltage' : 'board-undervoltage',
+        message: `${v.at} at the board is ${fmt(v.volts)} V, ${fmt(v.percent)} % of nominal, outside ${band} (${limits.preset})`,
+        value: v.percent,
+        threshold: limitOf(side),
+      });
+  }
   for (const load of loads)
     for (const b of load.branches) {
-      const dev = b.voltagePercent - 100;
-      if (load.energised && Math.abs(dev) > band)
+      const side = judgeVoltage(limits, b.voltagePercent);
+      if (load.energised && side !== 'within')
         out.push({
-          code: dev > 0 ? 'overvoltage' : 'undervoltage',
-          message: `load "${load.name}" (${b.from}-${b.to}) sees ${fmt(b.voltage.magnitude)} V, ${fmt(b.voltagePercent)} % of nominal, outside ±${band} %`,
+          code: side === 'over' ? 'overvoltage' : 'undervoltage',
+          message: `load "${load.name}" (${label(b.from)}-${label(b.to)}) sees ${fmt(b.voltage.magnitude)} V, ${fmt(b.voltagePercent)} % of nominal, outside ${band} (${limits.preset})`,
           value: b.voltagePercent,
-          threshold: 100 + Math.sign(dev) * band,
+          threshold: limitOf(side),
         });
     }
   for (const b of input.belowThreshold)

@@ -47,6 +47,9 @@ export function readLoads(solution: NetworkSolution, busVoltages: readonly Compl
       starPointShift: starV ? toPhasor(sub(starV, centroid)) : null,
       energised: states.some((s) => s.energised),
       ...(load.pfAssumed ? { pfAssumed: true as const } : {}),
+      circuit: load.schedule?.circuit ?? null,
+      breakerA: load.schedule?.breakerA ?? null,
+      poles: load.schedule?.poles ?? null,
     };
   });
 }

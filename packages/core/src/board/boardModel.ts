@@ -6,6 +6,7 @@
 import type { ComplexValue } from '../complex.js';
 import type { ConnectionSpec, LoadModelName, SystemKind } from './boardSchema.js';
 import type { PhaseId } from './systemTopology.js';
+import type { BoardConventions } from './conventions/boardConventions.js';
 
 export type { PhaseId } from './systemTopology.js';
 
@@ -43,6 +44,14 @@ export interface BoardLoad {
   readonly origin: 'board' | 'added';
   /** True when the file gave kW without pf, so pf 1 (a resistive load) was taken. */
   readonly pfAssumed?: boolean;
+  /** Panel-schedule fields from the file (circuit number, breaker rating, poles), when given. */
+  readonly schedule?: CircuitSchedule;
+}
+
+export interface CircuitSchedule {
+  readonly circuit?: string;
+  readonly breakerA?: number;
+  readonly poles?: 1 | 2 | 3;
 }
 
 export interface Board {
@@ -72,6 +81,8 @@ export interface Board {
   readonly transformerKVA: number | null;
   readonly loads: readonly BoardLoad[];
   readonly studies: { readonly openNeutral: boolean };
+  /** Region, phase labels, voltage limits; absent on boards built in code, which take `conventionsOf(board)`'s defaults. */
+  readonly conventions?: BoardConventions;
   /**
    * Unequal source impedances, ohm, one per phase in the order of `phases` (a bank of
    * unequal single-phase units, or the two windings of an open delta); when set, the

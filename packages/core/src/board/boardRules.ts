@@ -7,6 +7,7 @@ import { inputIssue, type InputIssue } from '../errors.js';
 import type { BoardBaseSpec, ConductorSpec, FeederSpec, LoadBaseSpec, SupplySpec, SystemKind } from './boardSchema.js';
 import { isThreePhase, phasesOf, systemHasNeutral } from './systemTopology.js';
 import { conductorResistance, tabulatedSizes } from './cableLibrary.js';
+import { readVoltageNotation } from './conventions/voltageNotation.js';
 import { isPerPhaseLine, lengthOf, materialOf, sizeOf } from './feederModel.js';
 
 /** A cross-field rule: the problems it finds in a board that passed the schema. Studies add their own (boardFile/). */
@@ -15,8 +16,14 @@ export type BoardRule<T extends BoardBaseSpec = BoardBaseSpec> = (board: T) => I
 const RATING_FORMS = 'exactly one rating: kW (pf 1 when not given), kW with pf, kVA with pf, A with pf, kW with kvar, or ohms';
 
 function ruleVoltageGiven(board: BoardBaseSpec): InputIssue[] {
-  const { lineToLine, lineToNeutral } = board.supply.voltage;
+  const { voltage, system } = board.supply;
   const path = 'supply.voltage';
+  if ('written' in voltage) {
+    // The schema read the notation; whether it fits the system can only be said here.
+    const read = readVoltageNotation(voltage.written, system);
+    return read.ok ? [] : [{ ...inputIssue('bad_voltage_notation', path, read.problem, voltage.written) }];
+  }
+  const { lineToLine, lineToNeutral } = voltage;
   if (lineToLine === undefined && lineToNeutral === undefined)
     return [inputIssue('missing', path, 'lineToLine or lineToNeutral (volts)')];
   if (lineToLine !== undefined && lineToNeutral !== undefined)
@@ -188,6 +195,21 @@ function connectionIssues(load: LoadBaseSpec, path: string, system: SystemKind):
   return issues;
 }
 
+/** Line (ungrounded) conductors a connection uses: the poles its breaker needs. */
+export function linesOfConnection(c: LoadBaseSpec['connection']): 1 | 2 | 3 {
+  if (c === 'ABC-star' || c === 'ABC-delta') return 3;
+  return c.endsWith('-N') ? 1 : 2;
+}
+
+/** A breaker switches every line conductor of its circuit (a 1P+N device counts as 1 pole). */
+function poleIssues(load: LoadBaseSpec, path: string): InputIssue[] {
+  if (load.poles === undefined) return [];
+  const needed = linesOfConnection(load.connection);
+  if (load.poles === needed) return [];
+  const kind = needed === 1 ? 'a line-to-neutral load' : needed === 2 ? 'a line-to-line load' : 'a three-phase load';
+  return [inputIssue('pole_count', `${path}.poles`, `${needed} pole${needed > 1 ? 's' : ''} for ${kind} (${load.connection}): one per line conductor it uses`, load.poles)];
+}
+
 /** The connections a load may use on each system. */
 export function acceptedConnections(system: BoardBaseSpec['supply']['system']): string[] {
   switch (system) {
@@ -212,7 +234,7 @@ function loadIssues(loads: readonly (LoadBaseSpec | undefined)[], system: System
   loads.forEach((load, i) => {
     if (load === undefined) return;
     const path = `loads[${i}]`;
-    issues.push(...ratingIssues(load, path), ...modelIssues(load, path));
+    issues.push(...ratingIssues(load, path), ...modelIssues(load, path), ...poleIssues(load, path));
     if (system !== null) issues.push(...connectionIssues(load, path, system));
     if (load.ohms && load.ohms.r === 0 && load.ohms.x === 0)
       issues.push(inputIssue('out_of_range', `${path}.ohms`, 'a non-zero impedance (r = x = 0 is a short circuit)', 'r = 0, x = 0'));

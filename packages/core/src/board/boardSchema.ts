@@ -12,6 +12,8 @@
  */
 import * as z from 'zod';
 import { groupDigits } from '../_internal/groupDigits.js';
+import { conventionsSchema } from './conventions/conventionsSchema.js';
+import { NOTATION_ACCEPTED, readVoltageNotation } from './conventions/voltageNotation.js';
 
 const nonNegative = z.number().nonnegative();
 
@@ -122,14 +124,33 @@ const windingSchema = z
   .union([transformerSchema, impedanceSchema])
   .describe('one single-phase unit: its rating (kVA, impedancePercent, xOverR) or its impedance (r, x) referred to the secondary');
 
+/** "208Y/120", "400/230", "120/240": read into both figures; `written` keeps the text (it also tells the region). */
+const voltageNotationSchema = z
+  .string()
+  .max(40)
+  .describe(`the trade's notation: ${NOTATION_ACCEPTED}`)
+  .transform((text, ctx) => {
+    const read = readVoltageNotation(text);
+    if (!read.ok) {
+      ctx.addIssue({ code: 'custom', message: read.problem, params: { code: 'bad_voltage_notation' } });
+      return z.NEVER;
+    }
+    return { lineToLine: read.notation.lineToLineV, lineToNeutral: read.notation.lineToNeutralV, written: read.notation.text };
+  });
+
 export const supplySchema = z.strictObject({
-  system: z.enum(SYSTEMS).describe('how the board is fed'),
+  system: z.enum(SYSTEMS).describe('how the board is fed (may be left out when voltage is written as notation)'),
   voltage: z
-    .strictObject({
-      lineToLine: within(PHYSICAL_RANGES.voltage).optional().describe('nominal line-to-line voltage, V'),
-      lineToNeutral: within(PHYSICAL_RANGES.voltage).optional().describe('nominal line-to-neutral voltage, V'),
-    })
-    .describe('nominal voltage: give lineToLine or lineToNeutral'),
+    .union([
+      z
+        .strictObject({
+          lineToLine: within(PHYSICAL_RANGES.voltage).optional().describe('nominal line-to-line voltage, V'),
+          lineToNeutral: within(PHYSICAL_RANGES.voltage).optional().describe('nominal line-to-neutral voltage, V'),
+        })
+        .describe('give lineToLine or lineToNeutral'),
+      voltageNotationSchema,
+    ])
+    .describe('nominal voltage: { lineToLine } or { lineToNeutral }, or notation such as "208Y/120", "400/230", "120/240"'),
   frequencyHz: z.literal([50, 60]).describe('supply frequency, Hz'),
   sequence: z.enum(['ABC', 'ACB']).optional().describe('phase sequence; default ABC'),
   emf: z
@@ -164,6 +185,10 @@ export const loadSchema = z.strictObject({
   name: z.string().min(1).describe('circuit name'),
   circuit: z.string().min(1).optional().describe('circuit number or way on the board, for the panel schedule (default: position in the list)'),
   breakerA: within(PHYSICAL_RANGES.ratingA).optional().describe('rated current of the circuit breaker or fuse, A (shown in the panel schedule)'),
+  poles: z
+    .literal([1, 2, 3])
+    .optional()
+    .describe('poles of the breaker on line conductors (a 1P+N device is 1): 1 for a line-to-neutral load, 2 line-to-line, 3 three-phase'),
   connection: z.enum(CONNECTIONS).describe('where the load connects'),
   starPoint: z
     .enum(['neutral', 'floating'])
@@ -209,6 +234,7 @@ export function boardSchemaWith<L extends z.ZodRawShape, S extends z.ZodRawShape
       name: z.string().min(1).optional().describe('board name'),
       note: z.string().optional().describe('free text'),
       supply: supplySchema,
+      conventions: conventionsSchema.optional(),
       feeder: feederSchema.optional(),
       loads: z.array(loadSchemaWith(extension.loadFields)).min(1).describe('the circuits on the board'),
       studies: studiesSchema.optional(),

@@ -17,6 +17,7 @@ export function boardSpecOf<I extends InstallationBaseSpec>(spec: I, index: numb
   return {
     name: b.name,
     supply: spec.supply,
+    ...(spec.conventions ? { conventions: spec.conventions } : {}),
     ...(b.feeder ? { feeder: b.feeder } : {}),
     loads: b.loads,
     ...(spec.studies ? { studies: spec.studies } : {}),

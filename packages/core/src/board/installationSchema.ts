@@ -8,6 +8,7 @@
  * `installationSchemaWith`; boardFile/ composes the whole file.
  */
 import * as z from 'zod';
+import { conventionsSchema } from './conventions/conventionsSchema.js';
 import { feederSchema, loadSchemaWith, studiesSchema, supplySchema, type BoardFileExtension } from './boardSchema.js';
 
 const installationBoardSchemaWith = <L extends z.ZodRawShape>(loadFields: L) =>
@@ -26,6 +27,7 @@ export function installationSchemaWith<L extends z.ZodRawShape, S extends z.ZodR
       name: z.string().min(1).optional().describe('installation name'),
       note: z.string().optional().describe('free text'),
       supply: supplySchema,
+      conventions: conventionsSchema.optional(),
       boards: z.array(installationBoardSchemaWith(extension.loadFields)).min(1).describe('the boards, in any order; exactly one has no fedFrom'),
       studies: studiesSchema.optional(),
       ...extension.sections,

@@ -7,6 +7,8 @@ import type { BoardBaseSpec, LoadBaseSpec, WindingSpec } from './boardSchema.js'
 import { feederModel } from './feederModel.js';
 import type { Board, BoardLoad, LoadBranch, Terminal, ZipFractions } from './boardModel.js';
 import { phasesOf, systemHasNeutral, type PhaseId } from './systemTopology.js';
+import { nominalOfNotation, readVoltageNotation } from './conventions/voltageNotation.js';
+import { resolveConventions } from './conventions/boardConventions.js';
 
 const ZIP_OF_MODEL: Record<string, ZipFractions> = {
   'constant-impedance': { z: 1, i: 0, p: 0 },
@@ -22,7 +24,10 @@ export function balancedAnglesDeg(system: BoardBaseSpec['supply']['system'], seq
 }
 
 function nominalVoltages(spec: BoardBaseSpec): { ln: number; ll: number | null } {
-  const { lineToLine, lineToNeutral } = spec.supply.voltage;
+  const voltage = spec.supply.voltage;
+  const written = 'written' in voltage ? readVoltageNotation(voltage.written, spec.supply.system) : null;
+  if (written?.ok) return nominalOfNotation(written.notation, spec.supply.system);
+  const { lineToLine, lineToNeutral } = voltage;
   const ratio = spec.supply.system === 'split-phase' ? 2 : Math.sqrt(3);
   if (spec.supply.system === 'single-phase') return { ln: lineToNeutral ?? Number.NaN, ll: null };
   if (lineToNeutral !== undefined) return { ln: lineToNeutral, ll: lineToNeutral * ratio };
@@ -115,7 +120,20 @@ function loadBranches(load: LoadBaseSpec, index: number, spec: BoardBaseSpec, ln
     const share = scale(total, 1 / pairs.length);
     const branches: LoadBranch[] = pairs.map(([from, to]) => ({ from, to, sNominal: share, vNominal, zip }));
     const pfAssumed = load.kW !== undefined && load.pf === undefined && load.kvar === undefined;
-    return { name: load.name, connection: load.connection, model, branches, origin: 'board', ...(pfAssumed ? { pfAssumed } : {}) };
+    const schedule = {
+      ...(load.circuit !== undefined ? { circuit: load.circuit } : {}),
+      ...(load.breakerA !== undefined ? { breakerA: load.breakerA } : {}),
+      ...(load.poles !== undefined ? { poles: load.poles } : {}),
+    };
+    return {
+      name: load.name,
+      connection: load.connection,
+      model,
+      branches,
+      origin: 'board',
+      ...(pfAssumed ? { pfAssumed } : {}),
+      ...(Object.keys(schedule).length ? { schedule } : {}),
+    };
   };
   const c = load.connection;
   if (c === 'ABC-star') {
@@ -169,6 +187,7 @@ export function normaliseBoard(spec: BoardBaseSpec): Board {
     transformerKVA: spec.supply.impedance ? null : (spec.supply.transformer?.kVA ?? null),
     loads: spec.loads.map((load, i) => loadBranches(load, i, spec, ln, ll)),
     studies: { openNeutral: spec.studies?.openNeutral ?? false },
+    conventions: resolveConventions(spec, { ln, ll }),
     ...unequal,
     ...(unequalLines ? { lineImpedances: feeder.lineImpedances } : {}),
   };

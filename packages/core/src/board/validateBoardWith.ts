@@ -8,6 +8,8 @@ import { inputIssue, type InputIssue } from '../errors.js';
 import { allInputIssues } from '../_internal/zodIssues.js';
 import { feederSchema, supplySchema, type BoardBaseSpec, type LoadBaseSpec } from './boardSchema.js';
 import { partialBoardIssues, type BoardRule } from './boardRules.js';
+import { readTradeSpellings } from './conventions/readTradeSpellings.js';
+import { inFileNaming } from './conventions/issueNaming.js';
 
 /** What a board file is checked against: its schema, one load's schema and the rules, in order. */
 export interface BoardFileChecks<T extends BoardBaseSpec> {
@@ -30,13 +32,17 @@ export function validateBoardWith<T extends BoardBaseSpec>(checks: BoardFileChec
       ok: false,
       issues: [inputIssue('installation', 'boards', 'a single board (supply, feeder, loads); this is an installation file (boards:), which `trivar solve` and solveInstallation read', 'an installation')],
     };
-  const parsed = checks.schema.safeParse(input);
-  const shapeIssues = allInputIssues(parsed.success ? [] : parsed.error.issues, input);
+  // L1/L2/L3 and notation's system first, so the schema and rules read one spelling; their
+  // issues then point back at the file as written.
+  const spelt = readTradeSpellings(input);
+  const naming = spelt.spellings.naming;
+  const parsed = checks.schema.safeParse(spelt.input);
+  const shapeIssues = allInputIssues(parsed.success ? [] : parsed.error.issues, spelt.input);
   if (parsed.success && shapeIssues.length === 0) {
-    const issues = checks.rules.flatMap((rule) => rule(parsed.data));
+    const issues = [...spelt.issues, ...inFileNaming(checks.rules.flatMap((rule) => rule(parsed.data)), naming)];
     return issues.length ? { ok: false, issues } : { ok: true, board: parsed.data };
   }
-  return { ok: false, issues: [...shapeIssues, ...partialBoardIssues(boardParts(input, checks.load))] };
+  return { ok: false, issues: [...spelt.issues, ...inFileNaming([...shapeIssues, ...partialBoardIssues(boardParts(spelt.input, checks.load))], naming)] };
 }
 
 /** Each part of a board that passes the schema on its own (for the rules that can still run). */

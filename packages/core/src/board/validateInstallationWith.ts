@@ -9,6 +9,8 @@ import { inputIssuesFromZod } from '../_internal/zodIssues.js';
 import type { BoardBaseSpec } from './boardSchema.js';
 import type { InstallationBaseSpec } from './installationSchema.js';
 import { validateBoardWith, type BoardFileChecks } from './validateBoardWith.js';
+import { readTradeSpellings } from './conventions/readTradeSpellings.js';
+import { inFileNaming } from './conventions/issueNaming.js';
 
 /** What an installation file is checked against, and how a board file becomes one. */
 export interface InstallationFileChecks<I extends InstallationBaseSpec, B extends BoardBaseSpec> {
@@ -26,11 +28,12 @@ export const isInstallationInput = (input: unknown): boolean => typeof input ===
 
 /** The installation a board file describes: its one board under the supply (the board's own fields only). */
 export function oneBoardInstallation<B extends BoardBaseSpec>(board: B) {
-  const { feeder, loads, name, supply, studies, note } = board;
+  const { feeder, loads, name, supply, studies, note, conventions } = board;
   return {
     ...(name ? { name } : {}),
     ...(note ? { note } : {}),
     supply,
+    ...(conventions ? { conventions } : {}),
     boards: [{ name: name ?? 'board', loads: loads as B['loads'], ...(feeder ? { feeder } : {}) }],
     ...(studies ? { studies } : {}),
   };
@@ -48,8 +51,10 @@ export function validateInstallationWith<I extends InstallationBaseSpec, B exten
     const board = validateBoardWith(checks.board, input);
     return board.ok ? { ok: true, installation: checks.boardAsInstallation(board.board) } : board;
   }
-  const parsed = checks.schema.safeParse(input);
-  if (!parsed.success) return { ok: false, issues: inputIssuesFromZod(parsed.error.issues, input) };
-  const issues = checks.rules.flatMap((rule) => rule(parsed.data));
+  const spelt = readTradeSpellings(input);
+  const naming = spelt.spellings.naming;
+  const parsed = checks.schema.safeParse(spelt.input);
+  if (!parsed.success) return { ok: false, issues: [...spelt.issues, ...inFileNaming(inputIssuesFromZod(parsed.error.issues, spelt.input), naming)] };
+  const issues = [...spelt.issues, ...inFileNaming(checks.rules.flatMap((rule) => rule(parsed.data)), naming)];
   return issues.length ? { ok: false, issues } : { ok: true, installation: parsed.data };
 }

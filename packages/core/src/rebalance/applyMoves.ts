@@ -28,11 +28,11 @@ export function moveInstallationCircuits(tree: RebalanceTree, moves: ReadonlyMap
   });
 }
 
-/** The installation with each board load's rating multiplied by its (complex) factor; added equipment untouched. */
+/** The installation with each load's rating multiplied by its (complex) factor (1 for added equipment in a file's conditions). */
 export function installationInCondition(tree: RebalanceTree, installation: Installation, factors: readonly ComplexValue[]): Installation {
   return mapLoads(tree, installation, (load, flat) => {
     const k = factors[flat];
-    if (load.origin !== 'board' || k === undefined || (k.re === 1 && k.im === 0)) return load;
+    if (k === undefined || (k.re === 1 && k.im === 0)) return load;
     return { ...load, branches: load.branches.map((br) => ({ ...br, sNominal: mul(br.sNominal, k) })) };
   });
 }

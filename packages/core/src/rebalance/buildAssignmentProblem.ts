@@ -54,7 +54,7 @@ export interface BuiltProblem {
 }
 
 /** Balanced nominal phase voltages of the scoring model, in `board.phases` order. */
-function nominalPhaseVoltages(board: Board): ComplexValue[] {
+export function nominalPhaseVoltages(board: Board): ComplexValue[] {
   const ln = board.nominalLineToNeutralV;
   if (board.phases.length === 1) return [polar(ln, 0)];
   if (board.phases.length === 2) return [polar(ln, 0), polar(ln, Math.PI)];
@@ -76,7 +76,7 @@ function connectionLineCurrents(board: Board, v: readonly ComplexValue[], connec
 }
 
 /** Line currents of a fixed load (any shape) in the scoring model: its branches at nominal voltage. */
-function fixedLoadLineCurrents(board: Board, v: readonly ComplexValue[], load: BoardLoad, factor: ComplexValue): ComplexValue[] {
+export function fixedLoadLineCurrents(board: Board, v: readonly ComplexValue[], load: BoardLoad, factor: ComplexValue): ComplexValue[] {
   const out = board.phases.map(() => complex(0, 0));
   const voltage = (t: string) => {
     const k = board.phases.indexOf(t as 'A');

@@ -45,6 +45,9 @@ const optionsSchema = z.strictObject({
   moveTable: z.boolean().optional(),
   objective: z.function().optional(),
   profile: z.looseObject({}).optional(),
+  loadConditions: z
+    .array(z.strictObject({ name: z.string().min(1), weight: z.number().nonnegative(), factors: z.array(z.strictObject({ re: z.number(), im: z.number() })) }))
+    .optional(),
 });
 
 export interface RebalanceOptions {
@@ -71,6 +74,11 @@ export interface RebalanceOptions {
   readonly objective?: RebalanceObjective;
   /** The file's `profile:` section, read when the study's conditions are `"scenarios"`. */
   readonly profile?: RebalanceContext['profile'];
+  /**
+   * Load conditions that replace the study's, each a complex multiplier of every
+   * circuit's rating (board by board, in file order); `conditionsFromIntervals` builds them from interval data.
+   */
+  readonly loadConditions?: RebalanceContext['loadConditions'];
 }
 
 interface ResolvedOptions {
@@ -239,7 +247,7 @@ function solveAtBoards(installation: Installation, condition: string, tree: Reba
 export function rebalanceInstallation(installation: Installation, study: unknown, options: RebalanceOptions = {}): RebalanceReport {
   const o = resolveOptions(options);
   const tree = rebalanceTree(installation);
-  const resolved = resolveRebalanceSpec(study, tree, { profile: options.profile });
+  const resolved = resolveRebalanceSpec(study, tree, { profile: options.profile, loadConditions: options.loadConditions });
   const built = buildAssignmentProblem(tree, resolved, o.objective);
   const p = built.problem;
   const n = p.circuitCount;

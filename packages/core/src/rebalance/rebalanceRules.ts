@@ -54,9 +54,11 @@ export interface ResolvedRebalance {
   readonly measuredBoards: readonly number[];
 }
 
-/** What the study may need from outside its own section: the file's profile scenarios. */
+/** What the study may need from outside its own section: the file's profile scenarios, or conditions built by the caller. */
 export interface RebalanceContext {
   readonly profile?: ProfileSpec | undefined;
+  /** Conditions that replace the study's (e.g. from interval data, intervalConditions.ts); factors by flat circuit index. */
+  readonly loadConditions?: readonly { readonly name: string; readonly weight: number; readonly factors: readonly ComplexValue[] }[] | undefined;
 }
 
 /** Default aim: the largest line current, plus the neutral current where the board has a neutral. */
@@ -150,6 +152,15 @@ export function conditionsFromScenarios(profile: ProfileSpec): LoadConditionSpec
 
 function conditionIssues(spec: RebalanceSpec, tree: RebalanceTree, context: RebalanceContext, out: ResolvedCondition[]): InputIssue[] {
   const issues: InputIssue[] = [];
+  if (context.loadConditions) {
+    if (context.loadConditions.length === 0) return [inputIssue('missing', 'conditions', 'at least one load condition', 'none')];
+    context.loadConditions.forEach((c, n) => {
+      if (c.factors.length !== tree.circuits.length)
+        issues.push(inputIssue('out_of_range', `loadConditions[${n}].factors`, `one factor per circuit (${tree.circuits.length})`, c.factors.length));
+      out.push({ name: c.name, weight: c.weight, factors: c.factors });
+    });
+    return issues;
+  }
   const find = circuitFinder(tree);
   let given: readonly LoadConditionSpec[] = [{ name: 'as rated' }];
   let where = 'conditions';

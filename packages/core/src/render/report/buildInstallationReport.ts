@@ -7,6 +7,8 @@
 import type { InstallationBaseSpec } from '../../board/installationSchema.js';
 import type { InstallationResult } from '../../analysis/installationResult.js';
 import type { CorrectionReport } from '../../correction/correctionResult.js';
+import type { InstallationEffect } from '../../correction/installationEffect.js';
+import { installationCorrectionSection } from './installationCorrectionSection.js';
 import type { ReportDocument, ReportSection } from './reportDocument.js';
 import { boardSection, boardSectionIds, feedersSection, installationDescription, totalsSection } from './installationSections.js';
 import { closingSections, placeSection } from './buildBoardReport.js';
@@ -20,8 +22,8 @@ export interface InstallationReportInput {
   readonly spec: InstallationBaseSpec;
   /** The solved installation (`solveInstallation`). */
   readonly result: InstallationResult;
-  /** A correction study at one board of the installation, if one ran. @defaultValue none */
-  readonly correction?: { readonly board: string; readonly report: CorrectionReport } | null;
+  /** A correction study at one board of the installation (`correctInstallation`), if one ran. @defaultValue none */
+  readonly correction?: { readonly board: string; readonly report: CorrectionReport; readonly effect: InstallationEffect } | null;
   /** Sections from further studies, placed before the assumptions; the same id replaces. @defaultValue [] */
   readonly studySections?: readonly ReportSection[];
 }
@@ -51,6 +53,7 @@ export function buildInstallationReport(input: InstallationReportInput): ReportD
     sections.push(atBoard(correctionSection(correction.report), correction.board));
     const resonance = resonanceSection(correction.report);
     if (resonance) sections.push(atBoard(resonance, correction.board));
+    sections.push(installationCorrectionSection(correction.effect));
   }
   for (const extra of input.studySections ?? []) placeSection(sections, extra);
   sections.push(

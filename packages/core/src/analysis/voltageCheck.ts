@@ -1,0 +1,52 @@
+/**
+ * A board's voltages against its voltage limits: the board's own (line-to-neutral where
+ * it has a neutral, else line-to-line) and every energised load's. The verdict and the
+ * voltage warnings come from the same judgement of the printed figures, so they never
+ * disagree with each other or with the percentages beside them.
+ */
+import { judgeVoltage, type VoltageLimits } from '../board/conventions/voltageLimits.js';
+import type { LineToLineReading, LoadReading, PhaseReading } from './boardResult.js';
+
+export interface VoltageExtreme {
+  readonly percent: number;
+  /** Where, in report labels: `L2` (a board phase), `L1-L2`, or a load's name. */
+  readonly at: string;
+}
+
+export interface VoltageCheck {
+  readonly limits: VoltageLimits;
+  /** Board voltages judged: line-to-neutral (with a neutral) or line-to-line. */
+  readonly boardVoltages: 'line-to-neutral' | 'line-to-line';
+  readonly lowest: VoltageExtreme;
+  readonly highest: VoltageExtreme;
+  /** `within` when every board and load voltage is inside the limits (as printed, 0.1 %). */
+  readonly verdict: 'within' | 'under' | 'over' | 'under-and-over';
+}
+
+export function checkVoltages(input: {
+  readonly limits: VoltageLimits;
+  readonly phases: readonly PhaseReading[];
+  readonly lineToLine: readonly LineToLineReading[];
+  readonly hasNeutral: boolean;
+  readonly loads: readonly LoadReading[];
+  readonly label: (phaseOrPair: string) => string;
+}): VoltageCheck {
+  const { limits, label } = input;
+  const byNeutral = input.hasNeutral || input.lineToLine.length === 0;
+  const points: VoltageExtreme[] = byNeutral
+    ? input.phases.map((p) => ({ percent: p.voltagePercent, at: `phase ${label(p.phase)}` }))
+    : input.lineToLine.map((l) => ({ percent: l.voltagePercent, at: `line-to-line ${label(l.pair)}` }));
+  for (const load of input.loads)
+    if (load.energised) for (const b of load.branches) points.push({ percent: b.voltagePercent, at: `"${load.name}"` });
+  const lowest = points.reduce((a, b) => (b.percent < a.percent ? b : a));
+  const highest = points.reduce((a, b) => (b.percent > a.percent ? b : a));
+  const under = judgeVoltage(limits, lowest.percent) === 'under';
+  const over = judgeVoltage(limits, highest.percent) === 'over';
+  return {
+    limits,
+    boardVoltages: byNeutral ? 'line-to-neutral' : 'line-to-line',
+    lowest,
+    highest,
+    verdict: under && over ? 'under-and-over' : under ? 'under' : over ? 'over' : 'within',
+  };
+}

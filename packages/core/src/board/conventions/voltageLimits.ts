@@ -1,0 +1,80 @@
+/**
+ * Voltage limits that a board's voltages are judged against, as named presets or
+ * custom percentages of nominal. Each preset names the document it follows and how
+ * far its values were checked (see METHODS.md §12).
+ *
+ * A figure is judged as printed: rounded to 0.1 % of nominal first, so a report never
+ * shows "95.0 %" beside a verdict that 95 % is outside a −5 % limit.
+ */
+import type { Region } from './region.js';
+
+export interface VoltageLimitPreset {
+  /** Allowed fall below nominal, %. */
+  readonly underPercent: number;
+  /** Allowed rise above nominal, %. */
+  readonly overPercent: number;
+  /** What the limits are, in words, with the source and how far it was checked. */
+  readonly source: string;
+}
+
+export const VOLTAGE_LIMIT_PRESETS = {
+  'en50160-supply': {
+    underPercent: 10,
+    overPercent: 10,
+    source:
+      'EN 50160, LV public supply: 230 V ±10 % for 95 % of the 10-minute means of a week (confirmed secondary: an EN 50160:2010 meter technical note); here applied to every solved voltage',
+  },
+  'c84-service-a': {
+    underPercent: 5,
+    overPercent: 5,
+    source: 'ANSI C84.1 Range A, service voltage: ±5 % of nominal (120 V: 114–126 V) (±5 % at service confirmed secondary; exact table from memory)',
+  },
+  'c84-service-b': {
+    underPercent: 8.3,
+    overPercent: 5.8,
+    source: 'ANSI C84.1 Range B, service voltage: −8.3 %/+5.8 % of nominal (120 V: 110–127 V) (from memory)',
+  },
+  'uk-supply': {
+    underPercent: 6,
+    overPercent: 10,
+    source:
+      'UK supply: 230 V +10 %/−6 % (confirmed: the Electricity Supply (Amendment) (No. 2) Regulations 1994 summary; carried into the Electricity Safety, Quality and Continuity Regulations 2002 — from memory)',
+  },
+} as const satisfies Record<string, VoltageLimitPreset>;
+
+export type VoltageLimitPresetName = keyof typeof VOLTAGE_LIMIT_PRESETS;
+export const VOLTAGE_LIMIT_PRESET_NAMES = Object.keys(VOLTAGE_LIMIT_PRESETS) as VoltageLimitPresetName[];
+
+/** The limits a board is judged against: a preset's, or the file's own percentages (`preset: 'custom'`). */
+export interface VoltageLimits extends VoltageLimitPreset {
+  readonly preset: VoltageLimitPresetName | 'custom';
+}
+
+/** The preset a region uses when the file names none: ANSI C84.1 Range A in North America, EN 50160 elsewhere. */
+export const DEFAULT_LIMITS_OF_REGION: Readonly<Record<Region, VoltageLimitPresetName>> = {
+  iec: 'en50160-supply',
+  'north-america': 'c84-service-a',
+};
+
+export function presetLimits(name: VoltageLimitPresetName): VoltageLimits {
+  return { preset: name, ...VOLTAGE_LIMIT_PRESETS[name] };
+}
+
+export function customLimits(underPercent: number, overPercent: number): VoltageLimits {
+  return { preset: 'custom', underPercent, overPercent, source: `custom limits from the file: −${underPercent} %/+${overPercent} % of nominal` };
+}
+
+/** A percentage of nominal as a report prints it (0.1 %), the figure the limits judge. */
+export const asPrinted = (percent: number): number => Math.round(percent * 10) / 10;
+
+/** Where a voltage (% of nominal) stands against the limits, judged on its printed figure. */
+export function judgeVoltage(limits: VoltageLimits, percent: number): 'under' | 'over' | 'within' {
+  const p = asPrinted(percent);
+  if (p < 100 - limits.underPercent) return 'under';
+  if (p > 100 + limits.overPercent) return 'over';
+  return 'within';
+}
+
+/** "±5 %" or "−6/+10 %": the band in a few characters, for tables and verdicts. */
+export const bandWords = (limits: VoltageLimits): string =>
+  limits.underPercent === limits.overPercent ? `±${limits.overPercent} %` : `−${limits.underPercent}/+${limits.overPercent} %`;

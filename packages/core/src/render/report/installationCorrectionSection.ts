@@ -1,0 +1,48 @@
+/**
+ * What correction equipment on one board of an installation does to every
+ * board and to the supply, as a report section. Reads only the plain
+ * `InstallationEffect` of the correction study.
+ */
+import type { InstallationEffect } from '../../correction/installationEffect.js';
+import type { BeforeAfter } from '../../correction/correctionResult.js';
+import { fixed } from '../svgText.js';
+import type { ReportColumn, ReportSection } from './reportDocument.js';
+
+const num = (label: string): ReportColumn => ({ label, align: 'right' });
+const change = (x: BeforeAfter, digits: number, unit = ''): string => `${fixed(x.before, digits)} → ${fixed(x.after, digits)}${unit}`;
+
+export function installationCorrectionSection(effect: InstallationEffect): ReportSection {
+  const s = effect.supply;
+  const supply: [string, string][] = [
+    ['From the source', `${change(s.kVA, 1)} kVA (${change(s.kvar, 1)} kvar)`],
+    ['Power factor at the source, kW / |kVA|', change(s.pf, 3)],
+    ['Losses (source windings and every feeder)', change(s.lossesKW, 3, ' kW')],
+    ['Lowest phase voltage in the installation', change(s.lowestVoltagePercent, 1, ' % of nominal')],
+  ];
+  if (s.transformerLoadingPercent) supply.push(['Supply transformer loading', change(s.transformerLoadingPercent, 0, ' %')]);
+  return {
+    id: 'correction-effect',
+    title: `Effect of the equipment on ${effect.board} across the installation`,
+    blocks: [
+      {
+        kind: 'paragraph',
+        text: `The whole installation solved without and with the equipment on ${effect.board}: each board's incomer carries that board and every board beyond it, so boards between the equipment and the supply see its effect too.`,
+      },
+      {
+        kind: 'table',
+        caption: 'Every board, before → after',
+        columns: [{ label: 'Board' }, num('PF at incomer'), num('Incomer kvar'), num('Largest feeder A'), num('Lowest V %nom'), num('Feeder loss kW')],
+        rows: effect.boards.map((b) => [
+          `${b.name}${b.hasEquipment ? ' (equipment here)' : ''}`,
+          change(b.vectorPf, 3),
+          change(b.incomerKvar, 1),
+          change(b.feeder.largestLineCurrentA, 1),
+          change(b.lowestVoltagePercent, 1),
+          change(b.feeder.lossesKW, 3),
+        ]),
+        note: 'PF at incomer: vector power factor |ΣP|/|ΣS| of what the board’s feeder carries. Incomer kvar above zero is lagging (taken from the board feeding it).',
+      },
+      { kind: 'facts', items: supply },
+    ],
+  };
+}
