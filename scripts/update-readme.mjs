@@ -10,6 +10,7 @@ const blocks = [
   ['correct-output', ['correct', 'examples/riverside-cold-store.yaml']],
   ['compare-output', ['correct', 'examples/cedar-falls-print-shop.yaml']],
   ['installation-output', ['solve', 'examples/maple-court-riser.yaml']],
+  ['regions-output', ['solve', 'examples/pine-hollow-cabin.yaml']],
   ['installation-correct-output', ['correct', 'examples/tannery-lane-works.yaml', '--board', 'Press shop', '--arrangement', 'star-bank']],
   ['harmonics-output', ['harmonics', 'examples/mill-street-offices.yaml']],
   ['correct-detuned-output', ['correct', 'examples/quayside-print-works.yaml']],

@@ -11,6 +11,7 @@
  * neutral load on a board with no neutral...) live in `boardRules.ts`.
  */
 import * as z from 'zod';
+import { groupDigits } from '../_internal/groupDigits.js';
 import { conventionsSchema } from './conventions/conventionsSchema.js';
 import { NOTATION_ACCEPTED, readVoltageNotation } from './conventions/voltageNotation.js';
 
@@ -23,7 +24,7 @@ const nonNegative = z.number().nonnegative();
  */
 function within(range: PhysicalRange): z.ZodNumber {
   const { min, max, unit, above } = range;
-  const text = `a number ${above ? 'above' : 'from'} ${min.toLocaleString('en')} ${above ? 'and at most' : 'to'} ${max.toLocaleString('en')}${unit ? ` ${unit}` : ''}`;
+  const text = `a number ${above ? 'above' : 'from'} ${groupDigits(min)} ${above ? 'and at most' : 'to'} ${groupDigits(max)}${unit ? ` ${unit}` : ''}`;
   return (above ? z.number().gt(min, { message: text }) : z.number().min(min, { message: text })).max(max, { message: text });
 }
 
@@ -145,6 +146,8 @@ export const supplySchema = z.strictObject({
         .strictObject({
           lineToLine: within(PHYSICAL_RANGES.voltage).optional().describe('nominal line-to-line voltage, V'),
           lineToNeutral: within(PHYSICAL_RANGES.voltage).optional().describe('nominal line-to-neutral voltage, V'),
+          // A validated spec keeps the notation it was read from, and must validate again as it is.
+          written: z.string().max(40).optional().describe('the notation this was read from (set by trivar; write the notation itself as the voltage)'),
         })
         .describe('give lineToLine or lineToNeutral'),
       voltageNotationSchema,

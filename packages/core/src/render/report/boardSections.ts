@@ -1,18 +1,21 @@
 /** Report sections about the board itself: description, panel schedule, solved results, lost neutral. */
-import type { BoardBaseSpec, ImpedanceSpec } from '../../board/boardSchema.js';
+import type { BoardBaseSpec, ImpedanceSpec, SystemKind } from '../../board/boardSchema.js';
+import { regionWords } from '../../board/conventions/regionWords.js';
 import { describeConductor, isPerPhaseLine } from '../../board/feederModel.js';
 
 /** A source impedance as entered: one for all phases, or one per phase. */
-function impedanceWords(z: NonNullable<BoardBaseSpec['supply']['impedance']>): string {
+function impedanceWords(z: NonNullable<BoardBaseSpec['supply']['impedance']>, naming: PhaseNaming): string {
   if ('r' in z) return `${z.r} + j${z.x} Ω`;
   return (['A', 'B', 'C'] as const)
     .filter((p) => z[p])
-    .map((p) => `${p} ${(z[p] as ImpedanceSpec).r} + j${(z[p] as ImpedanceSpec).x} Ω`)
+    .map((p) => `${labelIn(naming, p)} ${(z[p] as ImpedanceSpec).r} + j${(z[p] as ImpedanceSpec).x} Ω`)
     .join(', ');
 }
 import type { BoardResult, LoadReading } from '../../analysis/boardResult.js';
 import { fixed } from '../svgText.js';
 import { WARNING_THRESHOLDS } from '../../analysis/boardWarnings.js';
+import { labelIn, type PhaseNaming } from '../../board/conventions/phaseNames.js';
+import { bandWords, judgeVoltage } from '../../board/conventions/voltageLimits.js';
 import { renderPhasorDiagram } from '../renderPhasorDiagram.js';
 import { renderSequenceDiagram } from '../renderSequenceDiagram.js';
 import type { ReportBlock, ReportSection } from './reportDocument.js';
@@ -27,9 +30,9 @@ const SYSTEM_WORDS: Readonly<Record<string, string>> = {
 const pfWords = (pf: number | null, sense: string): string => (pf === null ? '—' : `${fixed(pf, 3)}${sense === 'unity' ? '' : sense === 'lagging' ? ' lag' : ' lead'}`);
 const orDash = (x: number | null | undefined, digits: number): string => (x === null || x === undefined ? '—' : fixed(x, digits));
 
-export function conductorWords(line: NonNullable<BoardBaseSpec['feeder']>['line'], feeder?: BoardBaseSpec['feeder']): string {
+export function conductorWords(line: NonNullable<BoardBaseSpec['feeder']>['line'], feeder?: BoardBaseSpec['feeder'], naming: PhaseNaming = 'A/B/C'): string {
   if (!line) return 'none entered (zero impedance)';
-  if (isPerPhaseLine(line)) return (['A', 'B', 'C'] as const).filter((p) => line[p]).map((p) => `${p}: ${conductorWords(line[p], feeder)}`).join('; ');
+  if (isPerPhaseLine(line)) return (['A', 'B', 'C'] as const).filter((p) => line[p]).map((p) => `${labelIn(naming, p)}: ${conductorWords(line[p], feeder)}`).join('; ');
   const c = line;
   const library = describeConductor(c, feeder);
   if (library) return `${library}${c.ratingA !== undefined ? `, rated ${c.ratingA} A` : ''}`;
@@ -41,11 +44,11 @@ export function conductorWords(line: NonNullable<BoardBaseSpec['feeder']>['line'
 }
 
 /** The supply in words: transformer, source impedance, bank or ideal; zero-sequence data when entered. */
-export function sourceWords(s: BoardBaseSpec['supply']): string {
+export function sourceWords(s: BoardBaseSpec['supply'], naming: PhaseNaming = 'A/B/C'): string {
   const base = s.transformer
-    ? `transformer ${s.transformer.kVA} kVA, impedance ${s.transformer.impedancePercent} %, X/R ${s.transformer.xOverR}${s.impedance ? `, plus ${impedanceWords(s.impedance)}` : ''}`
+    ? `transformer ${s.transformer.kVA} kVA, impedance ${s.transformer.impedancePercent} %, X/R ${s.transformer.xOverR}${s.impedance ? `, plus ${impedanceWords(s.impedance, naming)}` : ''}`
     : s.impedance
-      ? `${impedanceWords(s.impedance)}${'r' in s.impedance ? ' per phase' : ''}`
+      ? `${impedanceWords(s.impedance, naming)}${'r' in s.impedance ? ' per phase' : ''}`
       : s.bank
         ? 'a bank of single-phase units, one per phase'
         : s.openDelta
@@ -70,9 +73,9 @@ export function installationSection(spec: BoardBaseSpec, result: BoardResult): R
   const items: [string, string][] = [
     ['Board', b.name],
     ...systemFacts(result),
-    ['Source', sourceWords(s)],
+    ['Source', sourceWords(s, result.conventions.phaseNames)],
     ['Source voltages', s.emf ? 'unbalanced, as entered per phase' : 'balanced at nominal voltage'],
-    ['Feeder, each line', conductorWords(spec.feeder?.line, spec.feeder)],
+    ['Feeder, each line', conductorWords(spec.feeder?.line, spec.feeder, result.conventions.phaseNames)],
   ];
   if (result.neutral !== null) items.push(['Feeder, neutral', conductorWords(spec.feeder?.neutral, spec.feeder)]);
   if (b.neutralOpen) items.push(['Neutral', 'entered as broken (what-if)']);
@@ -93,7 +96,7 @@ export function scheduleTable(loads: BoardBaseSpec['loads'], result: BoardResult
     return [
       entered?.circuit ?? String(k + 1),
       l.name,
-      l.connection,
+      labelIn(result.conventions.phaseNames, l.connection),
       entered?.breakerA !== undefined ? fixed(entered.breakerA, 0) : '—',
       l.model,
       fixed(l.kW, 2),
@@ -137,7 +140,13 @@ export interface VoltageBand {
   readonly source: string;
 }
 
-/** The band trivar's warnings use (EN 50160 LV supply band, ±10 %). */
+/** The band of the board's own voltage limits (`conventions.voltageLimits`), which its warnings and verdict use. */
+export function bandOf(result: BoardResult): VoltageBand {
+  const l = result.voltageCheck.limits;
+  return { lowPercent: -l.underPercent, highPercent: l.overPercent, source: `${bandWords(l)} of nominal (${l.preset}): ${l.source}` };
+}
+
+/** The EN 50160 low-voltage supply band (±10 %), the IEC default. */
 export const DEFAULT_VOLTAGE_BAND: VoltageBand = {
   lowPercent: -WARNING_THRESHOLDS.voltageBandPercent,
   highPercent: WARNING_THRESHOLDS.voltageBandPercent,
@@ -145,12 +154,15 @@ export const DEFAULT_VOLTAGE_BAND: VoltageBand = {
 };
 
 /** Every phase and line-to-line voltage of the board against the band: its limits in volts, the margin and a verdict. */
-export function voltageLimitsTable(result: BoardResult, band: VoltageBand = DEFAULT_VOLTAGE_BAND): ReportBlock {
+export function voltageLimitsTable(result: BoardResult, band: VoltageBand = bandOf(result)): ReportBlock {
   const b = result.board;
+  const label = (t: string) => labelIn(result.conventions.phaseNames, t);
+  const limits = { preset: 'custom' as const, underPercent: -band.lowPercent, overPercent: band.highPercent, source: band.source };
   const row = (name: string, v: number, percent: number, nominal: number): string[] => {
     const margin = Math.min(percent - (100 + band.lowPercent), 100 + band.highPercent - percent);
-    const low = percent < 100 + band.lowPercent;
-    const high = percent > 100 + band.highPercent;
+    // Judged as printed, like the warnings and the verdict (see voltageLimits.ts).
+    const low = judgeVoltage(limits, percent) === 'under';
+    const high = judgeVoltage(limits, percent) === 'over';
     return [
       name,
       fixed(v, 1),
@@ -160,9 +172,11 @@ export function voltageLimitsTable(result: BoardResult, band: VoltageBand = DEFA
       low ? 'below the band' : high ? 'above the band' : 'within',
     ];
   };
-  const rows = result.phases.map((p) => row(`${p.phase}-N`, p.voltage.magnitude, p.voltagePercent, b.nominalLineToNeutralV));
-  if (b.nominalLineToLineV !== null && result.phases.length > 2)
-    for (const l of result.lineToLine) rows.push(row(l.pair, l.voltage.magnitude, l.voltagePercent, b.nominalLineToLineV));
+  // The voltages the board's verdict judges (voltageCheck.ts): phase voltages only where a neutral gives them meaning.
+  const judged = result.neutral !== null || result.lineToLine.length === 0 ? result.phases : [];
+  const rows = judged.map((p) => row(label(`${p.phase}-N`), p.voltage.magnitude, p.voltagePercent, b.nominalLineToNeutralV));
+  if (b.nominalLineToLineV !== null && result.phases.length > 1)
+    for (const l of result.lineToLine) rows.push(row(label(l.pair), l.voltage.magnitude, l.voltagePercent, b.nominalLineToLineV));
   return {
     kind: 'table',
     caption: 'Voltages against the limits',
@@ -185,8 +199,9 @@ export interface ResultBlockOptions {
 export function resultBlocks(result: BoardResult, options: ResultBlockOptions = {}): ReportBlock[] {
   const prefix = options.figurePrefix ?? '';
   const blocks: ReportBlock[] = [];
+  const label = (t: string) => labelIn(result.conventions.phaseNames, t);
   const rows = result.phases.map((p) => [
-    p.phase,
+    label(p.phase),
     fixed(p.voltage.magnitude, 1),
     fixed(p.voltage.angleDeg, 1),
     fixed(p.voltagePercent, 1),
@@ -217,7 +232,7 @@ export function resultBlocks(result: BoardResult, options: ResultBlockOptions = 
       { label: '% rating', align: 'right' },
     ],
     rows,
-    note: `${result.neutral ? 'Phase voltages to the neutral bar; the N row gives the neutral bar voltage to the source star point and the neutral current.' : 'Phase voltages to the centroid of the line voltages (no neutral).'} Line-to-line: ${result.lineToLine.map((l) => `${l.pair} ${fixed(l.voltage.magnitude, 1)} V`).join(', ')}.`,
+    note: `${result.neutral ? `Phase voltages to the neutral bar; the N row gives the neutral bar voltage to ${regionWords(result.conventions.region, result.board.system as SystemKind).sourceNeutralPoint} and the neutral current.` : 'Phase voltages to the centroid of the line voltages (no neutral).'} Line-to-line: ${result.lineToLine.map((l) => `${label(l.pair)} ${fixed(l.voltage.magnitude, 1)} V`).join(', ')}.`,
   });
   blocks.push(voltageLimitsTable(result, options.band));
   blocks.push({ kind: 'figure', name: `${prefix}phasors`, caption: `Phasor diagram of ${result.board.name} as solved`, svg: renderPhasorDiagram(result) });
@@ -264,7 +279,7 @@ export function openNeutralSection(result: BoardResult): ReportSection | null {
         kind: 'table',
         caption: 'Voltage each line-to-neutral circuit would see',
         columns: [{ label: 'Circuit' }, { label: 'Phase' }, { label: 'V', align: 'right' }, { label: '%nom', align: 'right' }, { label: 'Verdict' }],
-        rows: on.loads.map((l) => [l.name, l.phase, fixed(l.voltage, 1), fixed(l.voltagePercent, 1), l.flag === 'over' ? 'overvoltage' : l.flag === 'under' ? 'undervoltage' : 'within limits']),
+        rows: on.loads.map((l) => [l.name, labelIn(result.conventions.phaseNames, l.phase), fixed(l.voltage, 1), fixed(l.voltagePercent, 1), l.flag === 'over' ? 'overvoltage' : l.flag === 'under' ? 'undervoltage' : 'within limits']),
       },
       { kind: 'list', tone: 'caution', items: on.cautions },
     ],
