@@ -6,6 +6,7 @@
 import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import { readBoardText, solveBoard } from '@trivar/core';
+import { runTrivar } from '../cli/runTrivar.js';
 import { renderSolveReport } from '../../packages/cli/src/format/solveReport.js';
 
 const ROOT = new URL('../../', import.meta.url);
@@ -46,5 +47,22 @@ describe('region wording', () => {
     expect(heater.pfAssumed).toBe(true);
     expect(heater.pf).toBe(1);
     expect(renderSolveReport(r)).toMatch(/\*: pf not given in the file, taken as 1 \(a resistive load\)/);
+  });
+
+  // The capacitor cautions of `correct` and `harmonics` follow the region too: shorted "to ground"
+  // on North-American boards (480 V at 60 Hz, 120/240 V), "to earth" on IEC boards.
+  it.each([
+    ['cedar-falls-print-shop.yaml', 'ground'],
+    ['pine-hollow-cabin.yaml', 'ground'],
+    ['corner-bakery.yaml', 'earth'],
+  ])('correct and harmonics on %s speak of %s in their cautions', (file, word) => {
+    for (const command of ['correct', 'harmonics']) {
+      const r = runTrivar([command, `examples/${file}`]);
+      expect(r.stderr).toBe('');
+      const cautions = r.stdout.slice(r.stdout.lastIndexOf('Cautions'));
+      expect(cautions).toMatch(new RegExp(`together and to ${word} before touching`));
+      if (word === 'ground') expect(r.stdout).not.toMatch(IEC_TERMS);
+      else expect(r.stdout).not.toMatch(NORTH_AMERICAN_TERMS);
+    }
   });
 });

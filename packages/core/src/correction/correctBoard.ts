@@ -19,11 +19,13 @@ import { defaultPractice, selectBankUnits } from './selectBankUnits.js';
 import { verifyCorrection, type VerifyCorrectionOptions } from './verifyCorrection.js';
 import { scaleBoardLoads } from './scaleBoardLoads.js';
 import type { BankSizing, CompensatorSizing, CorrectionReport, CorrectionStatus, CorrectionWarning, SizedEquipment } from './correctionResult.js';
-import { ARRANGEMENT_NAMES, CORRECTION_CAUTIONS, infeasibleReason, reportSummary, warningText } from './correctionWording.js';
+import { ARRANGEMENT_NAMES, correctionCautions, infeasibleReason, reportSummary, warningText } from './correctionWording.js';
 import { definedOnly } from './_internal/optionSchemas.js';
 import { assertViableBoard } from '../analysis/viableOperatingPoint.js';
 import { CORRECTION_DEFAULTS } from './correctionDefaults.js';
 import { refitReactors, selectionWithResizedReactors } from './_internal/refitReactors.js';
+import { conventionsOf } from '../board/conventions/boardConventions.js';
+import { regionWords } from '../board/conventions/regionWords.js';
 
 function sizeArrangement(board: Board, spec: CorrectionSpec & { arrangement: Arrangement }): BankSizing | CompensatorSizing {
   switch (spec.arrangement) {
@@ -201,6 +203,6 @@ export function correctBoard(board: Board, spec: unknown): CorrectionReport {
     balance,
     reactorResizing: resizing,
     warnings,
-    cautions: CORRECTION_CAUTIONS,
+    cautions: correctionCautions(regionWords(conventionsOf(board).region, board.system).groundWord),
   };
 }

@@ -9,7 +9,9 @@ import type { Board, BoardLoad, PhaseId } from '../board/boardModel.js';
 import type { ConnectionSpec } from '../board/boardSchema.js';
 import type { BoardResult } from '../analysis/boardResult.js';
 import { solveBoardModel } from '../analysis/solveBoardModel.js';
-import { CORRECTION_CAUTIONS } from '../correction/correctionWording.js';
+import { correctionCautions } from '../correction/correctionWording.js';
+import { conventionsOf } from '../board/conventions/boardConventions.js';
+import { regionWords } from '../board/conventions/regionWords.js';
 import { parseHandFigures } from './validateHandFigures.js';
 import type { HandFiguresSpec } from './handFiguresSpec.js';
 import type { Compared, EffectContribution, HandCapacitor, HandCheckResult, HandEffectId, LineCheck } from './handCheckResult.js';
@@ -185,6 +187,7 @@ export function checkHandFigures(board: Board, figures: unknown): HandCheckResul
     };
   });
   const fa = figuresOf(rActual);
+  const cautions = correctionCautions(regionWords(conventionsOf(board).region, board.system).groundWord);
   return {
     board: { name: board.name, system: board.system, nominalLineToNeutralV: board.nominalLineToNeutralV, frequencyHz: board.frequencyHz },
     targetPf,
@@ -194,6 +197,6 @@ export function checkHandFigures(board: Board, figures: unknown): HandCheckResul
     neutralA: fa.neutralA !== null && textbookFigures.neutralA !== null ? compared(expected?.neutralA, textbookFigures.neutralA, fa.neutralA) : null,
     boardPf: compared(expected?.pf, hand.boardPf, fa.boardPf),
     effects,
-    cautions: [...CORRECTION_CAUTIONS, ...rActual.cautions.filter((c) => !CORRECTION_CAUTIONS.includes(c))],
+    cautions: [...cautions, ...rActual.cautions.filter((c) => !cautions.includes(c))],
   };
 }

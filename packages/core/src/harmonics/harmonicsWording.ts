@@ -31,10 +31,14 @@ export const harmonicsWarningText = {
   noBank: 'no bank in harmonics.bank: the scan shows the board as it is',
 };
 
-export const HARMONICS_CAUTIONS: readonly string[] = [
+/** Shown with every harmonics study, in the region's words ("earth" or "ground"). */
+export const harmonicsCautions = (ground: 'earth' | 'ground'): readonly string[] => [
   'Harmonic resonance can overload capacitors until they fail, rupture or catch fire; check every step combination before energising a bank.',
   'Neutrals of boards with non-linear loads can overheat without any protective device tripping; measure neutral current with a true-rms meter.',
   'Built-in spectra are typical values, not measurements: measure the real loads (true-rms, per order) before buying or rebuilding a bank.',
-  'Capacitors stay charged after disconnection: wait the rated discharge time, then short and earth every terminal before touching.',
+  `Capacitors stay charged after disconnection: wait the rated discharge time, then short every terminal together and to ${ground} before touching.`,
   'These results support, and do not replace, the judgement of a licensed professional and the local electrical codes.',
 ];
+
+/** The harmonics cautions in IEC words (the library's constant; reports use the board's region). */
+export const HARMONICS_CAUTIONS: readonly string[] = harmonicsCautions('earth');

@@ -19,8 +19,10 @@ import { IEEE_519_SOURCE, ieee519OrderLimit, ieee519Row } from './ieee519.js';
 import { checkVoltageDistortion } from './voltageDistortion.js';
 import { HARMONICS_DEFAULTS } from './harmonicsDefaults.js';
 import type { HarmonicsBoardSpec } from './harmonicsSpec.js';
-import { HARMONICS_CAUTIONS, harmonicsWarningText, NEUTRAL_PRACTICE } from './harmonicsWording.js';
+import { harmonicsCautions, harmonicsWarningText, NEUTRAL_PRACTICE } from './harmonicsWording.js';
 import type { CapacitorDuty, DutyCase, HarmonicLineReading, HarmonicsReport, HarmonicsWarning, NeutralCheck, ResonanceScan, TddCheck } from './harmonicsResult.js';
+import { conventionsOf } from '../board/conventions/boardConventions.js';
+import { regionWords } from '../board/conventions/regionWords.js';
 
 export interface HarmonicsOptions {
   /** Passed to the fundamental solve. @defaultValue solver defaults */
@@ -143,9 +145,10 @@ function capacitorDuty(board: Board, model: HarmonicModel, solve?: SolveOptions)
 
 function assumptions(board: Board, model: HarmonicModel): string[] {
   const forms = new Set(model.loads.flatMap((l) => (l.kind === 'linear' ? [l.form] : [])));
+  const words = regionWords(conventionsOf(board).region, board.system);
   return [
     ...(board.sourceStarImpedance || board.openDeltaCorner
-      ? ['the frequency scan takes the supply star point as solidly earthed (zero-sequence impedance or open delta used by the solve at each order, not by the scan)']
+      ? [`the frequency scan takes ${words.sourceNeutralPoint} as solidly ${words.groundWord}ed (zero-sequence impedance or open delta used by the solve at each order, not by the scan)`]
       : []),
     `linear loads as ${[...forms].join(' and ') || 'none'} R/X from their solved fundamental values (rated loads default to parallel R ‖ jX, loads in ohms and capacitors keep series form)`,
     'non-linear loads as ideal current sources; injection angle = spectrum angle + h × the angle of the load’s fundamental current',
@@ -244,7 +247,7 @@ export function analyseHarmonics(board: Board, model: HarmonicModel, options: Ha
     }),
     assumptions: assumptions(board, model),
     warnings,
-    cautions: HARMONICS_CAUTIONS,
+    cautions: harmonicsCautions(regionWords(conventionsOf(board).region, board.system).groundWord),
   };
 }
 

@@ -15,6 +15,8 @@ export interface RegionWords {
   readonly neutralConductor: string;
   /** What the phases of the board are called in a sentence: "phases", or the "legs" of a split-phase service. */
   readonly phasesWord: string;
+  /** Where a discharged capacitor's terminals are shorted to: "earth" (IEC), "ground" (NEC). */
+  readonly groundWord: 'earth' | 'ground';
   /** Cautions shown with a broken-neutral study. */
   readonly openNeutralCautions: readonly string[];
 }
@@ -36,7 +38,8 @@ export function regionWords(region: Region, system: SystemKind): RegionWords {
       sourceNeutralPoint: split ? 'the transformer centre tap' : 'the source wye point',
       neutralConductor: 'grounded conductor (neutral)',
       phasesWord: split ? 'leg' : 'phases',
+      groundWord: 'ground',
       openNeutralCautions: northAmericanCautions(split ? 'leg' : 'phases'),
     };
-  return { sourceNeutralPoint: 'the source star point', neutralConductor: 'neutral', phasesWord: 'phases', openNeutralCautions: IEC_OPEN_NEUTRAL_CAUTIONS };
+  return { sourceNeutralPoint: 'the source star point', neutralConductor: 'neutral', phasesWord: 'phases', groundWord: 'earth', openNeutralCautions: IEC_OPEN_NEUTRAL_CAUTIONS };
 }
