@@ -19,7 +19,7 @@ export interface OneLineDiagramOptions {
   readonly title?: string;
   /** Up to two short lines beside the supply symbol. @defaultValue voltage and frequency, and the transformer's rating */
   readonly supplyLines?: readonly string[];
-  /** How a phase is named in labels (e.g. `L1` for `A`). @defaultValue the phase id */
+  /** How a phase is named in labels (e.g. `L1` for `A`). @defaultValue the main board's naming (`conventions.phaseLabels`) */
   readonly phaseName?: (phase: string) => string;
 }
 
@@ -119,7 +119,8 @@ function strokeFor(f: FeederReading, largest: number): number {
  * const svg = renderOneLineDiagram(solveInstallation(installationFile));
  */
 export function renderOneLineDiagram(result: InstallationResult, options: OneLineDiagramOptions = {}): string {
-  const phaseName = options.phaseName ?? ((p: string) => p);
+  const labels = result.boards[0]!.result.conventions.phaseLabels as Readonly<Record<string, string>>;
+  const phaseName = options.phaseName ?? ((p: string) => labels[p] ?? p);
   const placed = placeBoards(result);
   const byName = new Map(placed.map((p) => [p.board.name, p]));
   const leaves = placed.filter((p) => !placed.some((q) => q.board.fedFrom === p.board.name)).length;

@@ -96,7 +96,7 @@ export function renderSequenceDiagram(result: BoardResult, options: SequenceDiag
     `<title>${escapeXml(`${title}: ${result.board.name}`)}</title>` +
     `<rect${attrs({ x: 0, y: 0, width, height, fill: '#FFFFFF' })}/>` +
     `<text${attrs({ x: 16, y: 22, 'font-size': 15, 'font-weight': 'bold', fill: INK })}>${escapeXml(title)}</text>` +
-    `<text${attrs({ x: 16, y: 40, 'font-size': 11, fill: MUTED_INK })}>${escapeXml(`${result.board.name} · phase-A components, sequence ${result.board.sequence}; each row on one scale`)}</text>` +
+    `<text${attrs({ x: 16, y: 40, 'font-size': 11, fill: MUTED_INK })}>${escapeXml(`${result.board.name} · phase-${result.conventions.phaseLabels.A} components, sequence ${result.board.sequence}; each row on one scale`)}</text>` +
     row(result.sequences.voltage, 'V', top, result.board.sequence, 'Voltages') +
     row(result.sequences.current, 'A', top + rowHeight, result.board.sequence, 'Line currents') +
     `</svg>\n`

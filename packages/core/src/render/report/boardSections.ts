@@ -12,7 +12,8 @@ function impedanceWords(z: NonNullable<BoardBaseSpec['supply']['impedance']>): s
 }
 import type { BoardResult, LoadReading } from '../../analysis/boardResult.js';
 import { fixed } from '../svgText.js';
-import { WARNING_THRESHOLDS } from '../../analysis/boardWarnings.js';
+import { bandWords, judgeVoltage } from '../../board/conventions/voltageLimits.js';
+import { labelIn } from '../../board/conventions/phaseNames.js';
 import { renderPhasorDiagram } from '../renderPhasorDiagram.js';
 import { renderSequenceDiagram } from '../renderSequenceDiagram.js';
 import type { ReportBlock, ReportSection } from './reportDocument.js';
@@ -93,7 +94,7 @@ export function scheduleTable(loads: BoardBaseSpec['loads'], result: BoardResult
     return [
       entered?.circuit ?? String(k + 1),
       l.name,
-      l.connection,
+      labelIn(result.conventions.phaseNames, l.connection),
       entered?.breakerA !== undefined ? fixed(entered.breakerA, 0) : '—',
       l.model,
       fixed(l.kW, 2),
@@ -129,46 +130,36 @@ export function scheduleSection(spec: BoardBaseSpec, result: BoardResult): Repor
   return { id: 'schedule', title: 'Panel schedule', blocks: [scheduleTable(spec.loads, result)] };
 }
 
-/** The voltage band the report judges against, % of nominal either side. */
-export interface VoltageBand {
-  readonly lowPercent: number;
-  readonly highPercent: number;
-  /** Where the band comes from, for the table's note. */
-  readonly source: string;
-}
-
-/** The band trivar's warnings use (EN 50160 LV supply band, ±10 %). */
-export const DEFAULT_VOLTAGE_BAND: VoltageBand = {
-  lowPercent: -WARNING_THRESHOLDS.voltageBandPercent,
-  highPercent: WARNING_THRESHOLDS.voltageBandPercent,
-  source: `±${WARNING_THRESHOLDS.voltageBandPercent} % of nominal, the EN 50160 low-voltage supply band trivar's warnings use`,
-};
-
-/** Every phase and line-to-line voltage of the board against the band: its limits in volts, the margin and a verdict. */
-export function voltageLimitsTable(result: BoardResult, band: VoltageBand = DEFAULT_VOLTAGE_BAND): ReportBlock {
+/**
+ * Every phase and line-to-line voltage of the board against the limits it is judged by (its
+ * `voltageCheck.limits`: the file's preset or its region's): the limits in volts, the margin and a
+ * verdict judged as the warnings judge it, on the printed figure.
+ */
+export function voltageLimitsTable(result: BoardResult): ReportBlock {
   const b = result.board;
+  const limits = result.voltageCheck.limits;
+  const label = (term: string) => labelIn(result.conventions.phaseNames, term);
   const row = (name: string, v: number, percent: number, nominal: number): string[] => {
-    const margin = Math.min(percent - (100 + band.lowPercent), 100 + band.highPercent - percent);
-    const low = percent < 100 + band.lowPercent;
-    const high = percent > 100 + band.highPercent;
+    const margin = Math.min(percent - (100 - limits.underPercent), 100 + limits.overPercent - percent);
+    const verdict = judgeVoltage(limits, percent);
     return [
       name,
       fixed(v, 1),
       fixed(percent, 1),
-      `${fixed((nominal * (100 + band.lowPercent)) / 100, 1)} – ${fixed((nominal * (100 + band.highPercent)) / 100, 1)}`,
+      `${fixed((nominal * (100 - limits.underPercent)) / 100, 1)} – ${fixed((nominal * (100 + limits.overPercent)) / 100, 1)}`,
       fixed(margin, 1),
-      low ? 'below the band' : high ? 'above the band' : 'within',
+      verdict === 'under' ? 'below the limits' : verdict === 'over' ? 'above the limits' : 'within',
     ];
   };
-  const rows = result.phases.map((p) => row(`${p.phase}-N`, p.voltage.magnitude, p.voltagePercent, b.nominalLineToNeutralV));
+  const rows = result.phases.map((p) => row(`${label(p.phase)}-N`, p.voltage.magnitude, p.voltagePercent, b.nominalLineToNeutralV));
   if (b.nominalLineToLineV !== null && result.phases.length > 2)
-    for (const l of result.lineToLine) rows.push(row(l.pair, l.voltage.magnitude, l.voltagePercent, b.nominalLineToLineV));
+    for (const l of result.lineToLine) rows.push(row(label(l.pair), l.voltage.magnitude, l.voltagePercent, b.nominalLineToLineV));
   return {
     kind: 'table',
-    caption: 'Voltages against the limits',
+    caption: `Voltages against the limits (${bandWords(limits)})`,
     columns: [{ label: 'Voltage' }, { label: 'V', align: 'right' }, { label: '%nom', align: 'right' }, { label: 'Allowed V', align: 'right' }, { label: 'Margin %', align: 'right' }, { label: 'Verdict' }],
     rows,
-    note: `Band: ${band.source}. Margin: distance to the nearer limit, % of nominal (negative outside the band).${result.neutral ? '' : ' Phase voltages to the centroid of the line voltages (no neutral).'}`,
+    note: `Limits: ${limits.source}. Margin: distance to the nearer limit, % of nominal (negative outside).${result.neutral ? '' : ' Phase voltages to the centroid of the line voltages (no neutral).'}`,
   };
 }
 
@@ -177,16 +168,15 @@ export interface ResultBlockOptions {
   readonly figurePrefix?: string;
   /** Draw the symmetrical components too (three-phase boards). @defaultValue true */
   readonly sequenceFigure?: boolean;
-  /** The band voltages are judged against. @defaultValue `DEFAULT_VOLTAGE_BAND` */
-  readonly band?: VoltageBand;
 }
 
 /** The solved figures of a board as report blocks: the V/I table, the limits, the phasors, power factors and unbalance, warnings. */
 export function resultBlocks(result: BoardResult, options: ResultBlockOptions = {}): ReportBlock[] {
   const prefix = options.figurePrefix ?? '';
   const blocks: ReportBlock[] = [];
+  const label = result.conventions.phaseLabels;
   const rows = result.phases.map((p) => [
-    p.phase,
+    label[p.phase],
     fixed(p.voltage.magnitude, 1),
     fixed(p.voltage.angleDeg, 1),
     fixed(p.voltagePercent, 1),
@@ -217,9 +207,9 @@ export function resultBlocks(result: BoardResult, options: ResultBlockOptions = 
       { label: '% rating', align: 'right' },
     ],
     rows,
-    note: `${result.neutral ? 'Phase voltages to the neutral bar; the N row gives the neutral bar voltage to the source star point and the neutral current.' : 'Phase voltages to the centroid of the line voltages (no neutral).'} Line-to-line: ${result.lineToLine.map((l) => `${l.pair} ${fixed(l.voltage.magnitude, 1)} V`).join(', ')}.`,
+    note: `${result.neutral ? 'Phase voltages to the neutral bar; the N row gives the neutral bar voltage to the source star point and the neutral current.' : 'Phase voltages to the centroid of the line voltages (no neutral).'} Line-to-line: ${result.lineToLine.map((l) => `${labelIn(result.conventions.phaseNames, l.pair)} ${fixed(l.voltage.magnitude, 1)} V`).join(', ')}.`,
   });
-  blocks.push(voltageLimitsTable(result, options.band));
+  blocks.push(voltageLimitsTable(result));
   blocks.push({ kind: 'figure', name: `${prefix}phasors`, caption: `Phasor diagram of ${result.board.name} as solved`, svg: renderPhasorDiagram(result) });
   const pf = result.powerFactor;
   const facts: [string, string][] = [
