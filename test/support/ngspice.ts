@@ -76,18 +76,22 @@ export function parallelElements(name: string, from: string, to: string, y: Comp
 const isZero = (z: ComplexValue) => z.re === 0 && z.im === 0;
 
 /**
- * One phase's supply path: the EMF at node s_<p>, the source and feeder impedances in series, and
- * an ammeter VI_<p> into bus_<p> (i(VI) flows from the source side into the board).
+ * One phase's supply path: the EMF at node s_<p>, the source and feeder impedances in series (the
+ * phase's own where they differ per phase), and an ammeter VI_<p> into bus_<p> (i(VI) flows from
+ * the source side into the board).
  */
 export function supplyPath(board: Board, p: string, emf: ComplexValue, omega: number): string[] {
+  const k = board.phases.findIndex((phase) => phase.toLowerCase() === p);
+  const source = board.sourceImpedances?.[k] ?? board.sourceImpedance;
+  const line = board.lineImpedances?.[k] ?? board.lineImpedance;
   const lines = [`VE_${p} s_${p} 0 DC 0 AC ${num(cAbs(emf))} ${num((Math.atan2(emf.im, emf.re) * 180) / Math.PI)}`];
   let at = `s_${p}`;
-  if (!isZero(board.sourceImpedance)) {
-    lines.push(...seriesElements(`S_${p}`, at, `t_${p}`, board.sourceImpedance, omega));
+  if (!isZero(source)) {
+    lines.push(...seriesElements(`S_${p}`, at, `t_${p}`, source, omega));
     at = `t_${p}`;
   }
-  if (!isZero(board.lineImpedance)) {
-    lines.push(...seriesElements(`F_${p}`, at, `f_${p}`, board.lineImpedance, omega));
+  if (!isZero(line)) {
+    lines.push(...seriesElements(`F_${p}`, at, `f_${p}`, line, omega));
     at = `f_${p}`;
   }
   lines.push(`VI_${p} ${at} bus_${p} DC 0`);

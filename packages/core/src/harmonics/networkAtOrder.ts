@@ -54,14 +54,22 @@ export function injectionsAtOrder(fundamental: NetworkSolution, model: HarmonicM
   });
 }
 
-/** The board with its supply and conductors at order h. */
+/**
+ * The board with its supply and conductors at order h: every impedance the
+ * network solves with, including the per-phase source and line impedances and
+ * the source star-point impedance where the board has them.
+ */
 export function boardAtOrder(board: Board, model: HarmonicModel, h: number): Board {
+  const atOrder = (z: ComplexValue) => impedanceAtOrder(z, h, model.resistance);
   return {
     ...board,
     emf: emfAtOrder(board, model, h),
-    sourceImpedance: impedanceAtOrder(board.sourceImpedance, h, model.resistance),
-    lineImpedance: impedanceAtOrder(board.lineImpedance, h, model.resistance),
-    neutralImpedance: impedanceAtOrder(board.neutralImpedance, h, model.resistance),
+    sourceImpedance: atOrder(board.sourceImpedance),
+    lineImpedance: atOrder(board.lineImpedance),
+    neutralImpedance: atOrder(board.neutralImpedance),
+    ...(board.sourceImpedances ? { sourceImpedances: board.sourceImpedances.map(atOrder) } : {}),
+    ...(board.lineImpedances ? { lineImpedances: board.lineImpedances.map(atOrder) } : {}),
+    ...(board.sourceStarImpedance ? { sourceStarImpedance: atOrder(board.sourceStarImpedance) } : {}),
   };
 }
 

@@ -14,6 +14,7 @@
 import { abs, add, inverse, type ComplexValue } from '../complex.js';
 import type { Board, Terminal } from '../board/boardModel.js';
 import type { NetworkSolution } from '../network/solveNetwork.js';
+import { lineImpedanceOf, sourceImpedanceOf } from '../network/installationCircuit.js';
 import {
   copyNodalMatrix,
   createNodalMatrix,
@@ -163,9 +164,13 @@ export function createScanEvaluator(fundamental: NetworkSolution, model: Harmoni
     prepare(h: number) {
       base.re.fill(0);
       base.im.fill(0);
-      const line = add(impedanceAtOrder(board.sourceImpedance, h, model.resistance), impedanceAtOrder(board.lineImpedance, h, model.resistance));
+      // Each line its own source and feeder impedance (they differ per phase on some boards).
+      const lines = board.phases.map((_, k) => {
+        const z = add(impedanceAtOrder(sourceImpedanceOf(board, k), h, model.resistance), impedanceAtOrder(lineImpedanceOf(board, k), h, model.resistance));
+        return abs(z) === 0 ? null : inverse(z);
+      });
       const neutral = impedanceAtOrder(board.neutralImpedance, h, model.resistance);
-      stampConductors(plan, base, abs(line) === 0 ? null : inverse(line), board.neutralOpen || abs(neutral) === 0 ? null : inverse(neutral));
+      stampConductors(plan, base, lines, board.neutralOpen || abs(neutral) === 0 ? null : inverse(neutral));
       stampFixed(base, h);
       for (const l of bankParts) {
         const behaviour = model.loads[l]!;

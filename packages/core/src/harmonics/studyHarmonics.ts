@@ -124,9 +124,12 @@ function capacitorDuty(board: Board, model: HarmonicModel, solve?: SolveOptions)
   };
 }
 
-function assumptions(model: HarmonicModel): string[] {
+function assumptions(board: Board, model: HarmonicModel): string[] {
   const forms = new Set(model.loads.flatMap((l) => (l.kind === 'linear' ? [l.form] : [])));
   return [
+    ...(board.sourceStarImpedance || board.openDeltaCorner
+      ? ['the frequency scan takes the supply star point as solidly earthed (zero-sequence impedance or open delta used by the solve at each order, not by the scan)']
+      : []),
     `linear loads as ${[...forms].join(' and ') || 'none'} R/X from their solved fundamental values (rated loads default to parallel R ‖ jX, loads in ohms and capacitors keep series form)`,
     'non-linear loads as ideal current sources; injection angle = spectrum angle + h × the angle of the load’s fundamental current',
     `source and feeder resistance ${model.resistance === 'constant' ? 'constant with frequency' : '× √h (skin effect)'}; reactances × h (inductive) or / h (capacitive)`,
@@ -215,7 +218,7 @@ export function analyseHarmonics(board: Board, model: HarmonicModel, options: Ha
       if (b.kind !== 'non-linear') return [];
       return [{ load: load.name, spectrum: b.spectrumName, source: b.source, thdPercent: 100 * Math.sqrt(b.spectrum.reduce((s, o) => s + o.fraction ** 2, 0)) }];
     }),
-    assumptions: assumptions(model),
+    assumptions: assumptions(board, model),
     warnings,
     cautions: HARMONICS_CAUTIONS,
   };

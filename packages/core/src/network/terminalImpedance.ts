@@ -103,10 +103,19 @@ export function stampAdmittance(m: NodalMatrix, p: number, q: number, g: number,
 /**
  * Stamps the fixed elements: each line (source + feeder) from its bus to the
  * star point, and the neutral conductor from the bar to the star point.
- * Admittances as complex values; null for none.
+ * Admittances as complex values, one for every line or one per line in phase
+ * order; null for none.
  */
-export function stampConductors(plan: PassiveNetworkPlan, m: NodalMatrix, lineAdmittance: ComplexValue | null, neutralAdmittance: ComplexValue | null): void {
-  if (lineAdmittance) for (const bus of plan.busIndex) stampAdmittance(m, bus, -1, lineAdmittance.re, lineAdmittance.im);
+export function stampConductors(
+  plan: PassiveNetworkPlan,
+  m: NodalMatrix,
+  lineAdmittance: ComplexValue | readonly (ComplexValue | null)[] | null,
+  neutralAdmittance: ComplexValue | null,
+): void {
+  plan.busIndex.forEach((bus, k) => {
+    const y = Array.isArray(lineAdmittance) ? lineAdmittance[k] : (lineAdmittance as ComplexValue | null);
+    if (y) stampAdmittance(m, bus, -1, y.re, y.im);
+  });
   if (neutralAdmittance && plan.neutralIndex !== null && plan.neutralIndex >= 0) stampAdmittance(m, plan.neutralIndex, -1, neutralAdmittance.re, neutralAdmittance.im);
 }
 
