@@ -112,21 +112,27 @@ async function main(): Promise<void> {
     }
     return { re, im };
   });
-  y.forEach((c, l) => {
-    writeFileSync(join(dir, `y${l}re.f64`), new Uint8Array(c.re.buffer));
-    writeFileSync(join(dir, `y${l}im.f64`), new Uint8Array(c.im.buffer));
+  // NumPy gets what the kernel gets: the driver columns (scale re, im) and each load's rating,
+  // and forms the admittances inside the timed solve as the kernel does.
+  scales.forEach((x, l) => {
+    writeFileSync(join(dir, `a${l}re.f64`), new Uint8Array(Float64Array.from(x).buffer));
+    writeFileSync(join(dir, `a${l}im.f64`), new Uint8Array(Float64Array.from(columns.im[l]!).buffer));
   });
   const z = { re: board.sourceImpedance.re + board.lineImpedance.re, im: board.sourceImpedance.im + board.lineImpedance.im };
   const py = `
   import numpy as np, time, sys, json
   d = sys.argv[1]
-  Y = [np.fromfile(f"{d}/y{k}re.f64") + 1j*np.fromfile(f"{d}/y{k}im.f64") for k in range(3)]
+  A = [np.fromfile(f"{d}/a{k}re.f64") + 1j*np.fromfile(f"{d}/a{k}im.f64") for k in range(3)]
+  K = np.array(${JSON.stringify(rated.map((r) => [r.re, r.im]))})
+  K = K[:,0] + 1j*K[:,1]
+  V0 = ${v0}
   E = np.array(${JSON.stringify(board.emf.map((e) => [e.re, e.im]))})
   E = E[:,0] + 1j*E[:,1]
   Z = complex(${z.re}, ${z.im}); Yn = 1/complex(${board.neutralImpedance.re}, ${board.neutralImpedance.im})
   a = complex(-0.5, ${board.sequence === 'ABC' ? '' : '-'}np.sqrt(3)/2)
   def solve():
       # The same figures the batch kernel writes: line, neutral, phase-voltage magnitudes, phase P and Q, |V2|/|V1|.
+      Y = [np.conj(A[k]*K[k])/(V0*V0) for k in range(3)]
       Yp = [Y[k]/(1 + Z*Y[k]) for k in range(3)]
       VN = sum(Yp[k]*E[k] for k in range(3)) / (Yp[0] + Yp[1] + Yp[2] + Yn)
       I = [Yp[k]*(E[k] - VN) for k in range(3)]

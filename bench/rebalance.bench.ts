@@ -31,6 +31,8 @@ import { randomBoard, seeded, boardFigures } from '../test/rebalance/support/reb
 import { randomInstallation } from '../test/rebalance/support/rebalanceInstallations.js';
 
 const quick = process.argv.includes('--quick');
+/** `--installations`: only the installation rows (the board rows take minutes on a shared machine). */
+const installationsOnly = process.argv.includes('--installations');
 const seeds = quick ? [1, 2, 3] : [1, 2, 3, 4, 5, 6, 7, 8, 9, 10];
 
 /** Best of `runs` after a warm-up call: wall time and this process's CPU time, ms. */
@@ -113,12 +115,12 @@ function report(title: string, circuits: number, method: 'local-search' | 'exact
 
 console.log(`trivar rebalance benchmark — ${new Date().toISOString().slice(0, 10)}, node ${process.version}, ${seeds.length} boards per size`);
 console.log('score: largest line current + neutral current (A); times: whole call, best of 3; goals on CPU time\n');
-const at42 = report('42 circuits, local search', 42, 'local-search', 50);
-const at84 = report('84 circuits, local search', 84, 'local-search', 200);
-for (const n of quick ? [18] : [14, 16, 18, 20]) report(`${n} circuits, exact`, n, 'exact', n === 18 ? 1000 : null);
+const at42 = installationsOnly ? [] : report('42 circuits, local search', 42, 'local-search', 50);
+const at84 = installationsOnly ? [] : report('84 circuits, local search', 84, 'local-search', 200);
+for (const n of installationsOnly ? [] : quick ? [18] : [14, 16, 18, 20]) report(`${n} circuits, exact`, n, 'exact', n === 18 ? 1000 : null);
 
-console.log('\nAgainst the largest-first kVA spread (median over the boards):');
-for (const [n, rows] of [[42, at42], [84, at84]] as const) {
+if (!installationsOnly) console.log('\nAgainst the largest-first kVA spread (median over the boards):');
+for (const [n, rows] of installationsOnly ? [] : ([[42, at42], [84, at84]] as const)) {
   const share = (x: (r: (typeof rows)[number]) => number) => median(rows.map(x));
   console.log(
     `  ${n} circuits: neutral ${share((r) => r.neutralKva).toFixed(1)} A → ${share((r) => r.neutralAfter).toFixed(3)} A; largest line ${share((r) => r.lineKva).toFixed(1)} A → ${share((r) => r.lineAfter).toFixed(1)} A`,

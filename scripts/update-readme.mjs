@@ -1,13 +1,16 @@
 // Refreshes the README's shown CLI output from the built CLI (run after `npm run build`).
 // test/examples/readme.test.ts fails whenever the README and the real output differ.
 import { spawnSync } from 'node:child_process';
-import { readFileSync, writeFileSync } from 'node:fs';
+import { copyFileSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
 
 const blocks = [
   ['demo-output', ['solve', 'examples/corner-bakery.yaml']],
   ['correct-output', ['correct', 'examples/riverside-cold-store.yaml']],
   ['compare-output', ['correct', 'examples/cedar-falls-print-shop.yaml']],
   ['installation-output', ['solve', 'examples/maple-court-riser.yaml']],
+  ['regions-output', ['solve', 'examples/pine-hollow-cabin.yaml']],
   ['installation-correct-output', ['correct', 'examples/tannery-lane-works.yaml', '--board', 'Press shop', '--arrangement', 'star-bank']],
   ['harmonics-output', ['harmonics', 'examples/mill-street-offices.yaml']],
   ['correct-detuned-output', ['correct', 'examples/quayside-print-works.yaml']],
@@ -38,3 +41,28 @@ for (const [file, args] of images) {
   if (run.status !== 0) throw new Error(`trivar ${args.join(' ')} failed: ${run.stderr}`);
   writeFileSync(file, run.stdout);
 }
+
+// The load-over-time example: a generated year of 1-minute data (not committed) through
+// `trivar profile` with the correction study's bank; its report block and two of its charts
+// (test/examples/readmeProfile.test.ts checks them).
+const profileDir = mkdtempSync(join(tmpdir(), 'trivar-readme-profile-'));
+const profileData = join(profileDir, 'quay-street.csv');
+const generated = spawnSync(process.execPath, ['scripts/generate-profile-example.mjs', profileData], { encoding: 'utf8' });
+if (generated.status !== 0) throw new Error(`generate-profile-example failed: ${generated.stderr}`);
+const profileArgs = ['profile', 'examples/quay-street-flats.yaml', '--data', profileData, '--time-zone', 'Europe/Dublin', '--correction-bank', '--charts', join(profileDir, 'charts')];
+const profileRun = spawnSync(process.execPath, ['packages/cli/bin/trivar.js', ...profileArgs], { encoding: 'utf8' });
+if (profileRun.status !== 0) throw new Error(`trivar ${profileArgs.join(' ')} failed: ${profileRun.stderr}`);
+readme = readFileSync('README.md', 'utf8');
+{
+  const start = '<!-- profile-output:start -->';
+  const end = '<!-- profile-output:end -->';
+  const [head, rest] = readme.split(start);
+  readme = `${head}${start}\n\`\`\`text\n${profileRun.stdout.trimEnd()}\n\`\`\`\n${end}${rest.split(end)[1]}`;
+}
+writeFileSync('README.md', readme);
+for (const [committed, written] of [
+  ['docs/quay-street-currents.svg', 'currents.svg'],
+  ['docs/quay-street-power-factor.svg', 'power-factor.svg'],
+])
+  copyFileSync(join(profileDir, 'charts', written), committed);
+rmSync(profileDir, { recursive: true, force: true });

@@ -4,7 +4,7 @@
  * or a breaker whose poles do not fit its load, is refused naming the field.
  */
 import { describe, expect, it } from 'vitest';
-import { conventionsOf, solveBoard, solveInstallation, validateBoard, validateInstallation } from '@trivar/core';
+import { conventionsOf, parseBoard, readBoardText, rewriteBoardText, solveBoard, solveInstallation, validateBoard, validateInstallation } from '@trivar/core';
 import { renderSolveReport } from '../../packages/cli/src/format/solveReport.js';
 
 type Mutable = Record<string, any>;
@@ -82,7 +82,6 @@ describe('L1/L2/L3 in a board file', () => {
     ['a load in the other naming', edit(numbered, (b) => (b.loads[2].connection = 'C-A')), 'mixed_phase_names', 'loads[2].connection'],
     ['a per-phase key in the other naming', edit(numbered, (b) => (b.feeder.line = { L1: { r: 0.05, x: 0 }, B: { r: 0.05, x: 0 }, L3: { r: 0.05, x: 0 } })), 'mixed_phase_names', 'feeder.line.B'],
     ['the same phase twice', edit(lettered, (b) => (b.supply.impedance = { A: { r: 0.02, x: 0 }, L1: { r: 0.02, x: 0 }, B: { r: 0.02, x: 0 }, C: { r: 0.02, x: 0 } })), 'duplicate_phase', 'supply.impedance.L1'],
-    ['a declared naming the file does not use', edit(lettered, (b) => (b.conventions = { phaseNames: 'L1/L2/L3' })), 'mixed_phase_names', 'conventions.phaseNames'],
     ['an unknown phase name', edit(numbered, (b) => (b.loads[0].connection = 'L1-L4')), 'invalid_value', 'loads[0].connection'],
     ['a rule broken in L1/L2/L3 is reported in L1/L2/L3', edit(numbered, (b) => (b.supply.emf = { L1: { V: 230, angleDeg: 0 }, L2: { V: 230, angleDeg: -120 } })), 'missing', 'supply.emf.L3'],
     ['one pole on a line-to-line load', edit(lettered, (b) => (b.loads[0].poles = 1)), 'pole_count', 'loads[0].poles'],
@@ -104,6 +103,24 @@ describe('L1/L2/L3 in a board file', () => {
     const result = validateBoard(edit(numbered, (b) => (b.loads[2].connection = 'C-A')));
     expect(result.ok).toBe(false);
     if (!result.ok) expect(result.issues[0]!.message).toMatch(/names phases L1\/L2\/L3 \(first at supply\.impedance\.L1\)/);
+  });
+
+  it('a validated spec validates again as it is, and solves the same (notation and L1/L2/L3 kept in conventions)', () => {
+    const input = { ...numbered(), supply: { ...numbered().supply, voltage: '230/400' } };
+    const spec = parseBoard(input);
+    expect(spec.conventions?.phaseNames).toBe('L1/L2/L3');
+    expect(spec.supply.voltage).toMatchObject({ written: '230/400', lineToLine: 400, lineToNeutral: 230 });
+    expect(parseBoard(spec)).toEqual(spec);
+    expect(solveBoard(spec).phases).toEqual(solveBoard(input).phases);
+    expect(solveBoard(spec).conventions.phaseNames).toBe('L1/L2/L3');
+    // A hand-edited spec whose figures disagree with its notation is refused.
+    const edited = { ...spec, supply: { ...spec.supply, voltage: { ...spec.supply.voltage, lineToLine: 415 } } };
+    expect(validateBoard(edited).ok).toBe(false);
+  });
+
+  it('phaseNames chooses the report labels of a file written either way', () => {
+    const r = solveBoard({ ...lettered(), conventions: { phaseNames: 'L1/L2/L3' } });
+    expect(renderSolveReport(r)).toMatch(/^ {2}L1 +\d/m);
   });
 
   it('never changes the object it was given', () => {
@@ -150,5 +167,71 @@ describe('panel-schedule fields', () => {
     const text = renderSolveReport(r);
     expect(text).toMatch(/^ {2}7 +saw .*16 A 2P$/m);
     expect(text).toMatch(/^ {2}9 +compressor .*20 A 3P$/m);
+  });
+});
+
+describe('rebalancing a file written in L1/L2/L3', () => {
+  it('writes the moved circuits back in the file’s own naming, so the file stays valid', () => {
+    const text = 'supply: { voltage: 230/400, frequencyHz: 50 }\nloads:\n  - { name: Kettle, connection: L1-N, kW: 2 }\n  - { name: Oven, connection: L1-L2, kW: 3 }\n';
+    const out = rewriteBoardText(text, [
+      { circuit: 1, name: 'Kettle', to: 'B-N' },
+      { circuit: 2, name: 'Oven', to: 'C-A' },
+    ]);
+    expect(out).toContain('connection: L2-N');
+    expect(out).toContain('connection: L3-L1');
+    expect(validateBoard(readBoardText(out)).ok).toBe(true);
+    expect(rewriteBoardText('loads:\n  - { name: Kettle, connection: A-N, kW: 2 }\n', [{ circuit: 1, name: 'Kettle', to: 'B-N' }])).toContain('connection: B-N');
+  });
+});
+
+describe('drawings and the HTML report follow the naming', () => {
+  it('labels phasors, sequence components and the limits table L1/L2/L3, keeping data-phase A/B/C', async () => {
+    const { renderPhasorDiagram, renderSequenceDiagram, buildBoardReport, renderReportHtml } = await import('@trivar/core');
+    const r = solveBoard(numbered());
+    const phasors = renderPhasorDiagram(r);
+    expect(phasors).toContain('0° = phase-L1 source voltage');
+    expect(phasors).toMatch(/>L2</);
+    expect(phasors).toContain('data-phase="B"');
+    const sequences = renderSequenceDiagram(r);
+    expect(sequences).toContain('L1=L2=L3');
+    expect(sequences).toContain('sequence L1L2L3');
+    const html = renderReportHtml(buildBoardReport({ spec: parseBoard(numbered()), result: r }));
+    expect(html).toContain('L1 0.02 + j0.05 Ω');
+    expect(html).toMatch(/<td[^>]*>L3-L1<\/td>/);
+    expect(html).not.toMatch(/<td[^>]*>[ABC]-[ABCN]<\/td>/);
+  });
+});
+
+describe('a rebalancing work order for a file in L1/L2/L3', () => {
+  it('names the connections the way the file does', async () => {
+    const { normaliseBoard, rebalanceBoard } = await import('@trivar/core');
+    const { renderRebalanceReport } = await import('../../packages/cli/src/format/rebalanceReport.js');
+    const board = normaliseBoard(
+      parseBoard({
+        supply: { voltage: '230/400', frequencyHz: 50, impedance: { r: 0.02, x: 0.02 } },
+        loads: [
+          { name: 'Flat 1', connection: 'L1-N', kW: 5 },
+          { name: 'Flat 2', connection: 'L1-N', kW: 5 },
+          { name: 'Flat 3', connection: 'L1-N', kW: 5 },
+        ],
+      }),
+    );
+    const report = rebalanceBoard(board, {});
+    expect(report.moves.length).toBe(2);
+    expect(report.board.phaseNames).toBe('L1/L2/L3');
+    const text = renderRebalanceReport(report);
+    expect(text).toMatch(/Flat \d +L1-N +L[23]-N/);
+    expect(text).not.toMatch(/\b[ABC]-N\b/);
+  });
+});
+
+describe('profile columns naming phases', () => {
+  it('"phase L2 [kW]" drives the same metered phase as "phase B [kW]"', async () => {
+    const { normaliseBoard, planColumns } = await import('@trivar/core');
+    const board = normaliseBoard(parseBoard(numbered()));
+    const numberedPlan = planColumns(board, ['time', 'phase L2 [kW]']);
+    const letteredPlan = planColumns(board, ['time', 'phase B [kW]']);
+    expect(numberedPlan.board.loads.at(-1)!.branches[0]!.from).toBe('B');
+    expect(numberedPlan.board.loads.at(-1)).toEqual(letteredPlan.board.loads.at(-1));
   });
 });

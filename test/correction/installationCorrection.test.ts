@@ -10,6 +10,8 @@ import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import {
   boardOfInstallation,
+  installationOf as placeOf,
+  scaleBoardLoads,
   correctBoard,
   correctInstallation,
   compareInstallationCorrections,
@@ -219,5 +221,25 @@ describe('correctBoard refuses a collapsed board (the library, not only the CLI)
         expect((error as Error).message).toMatch(/^no viable operating point: the supply cannot carry these loads: Main: the board voltage has collapsed to .*A-N \d+\.\d %/);
       }
     }
+  });
+});
+
+describe('light load on a board that feeds others scales everything its incomer carries', () => {
+  it('a sub-board: its own loads and those of every board below it, nothing beside or above it', () => {
+    const installation = installationOf(riser);
+    const floor2 = boardOfInstallation(installation, installation.subBoards.findIndex((b) => b.name === 'Floor 2') + 1);
+    const light = placeOf(scaleBoardLoads(floor2, { fraction: 0.5 })).installation;
+    const kW = (loads: readonly { branches: readonly { sNominal: { re: number } }[] }[]) => loads.reduce((s, l) => s + l.branches.reduce((t, b) => t + b.sNominal.re, 0), 0);
+    installation.subBoards.forEach((sb, i) => {
+      const ratio = kW(light.subBoards[i]!.loads) / kW(sb.loads);
+      expectClose(ratio, ['Floor 2', 'Floor 3', 'Floor 4'].includes(sb.name) ? 0.5 : 1, { rel: 1e-12, abs: 0 });
+    });
+    expectClose(kW(light.main.loads) / kW(installation.main.loads), 1, { rel: 1e-12, abs: 0 });
+  });
+  it('the main board at no load: the main incomer carries no active power (before the change it carried the other boards)', () => {
+    const c = correctInstallation(installationOf(tannery), { arrangement: 'star-bank', lightLoad: { fraction: 0 } }, { board: 'Main switchboard' });
+    const after = c.report.verification.lightLoad!.after;
+    const kW = after.phases.reduce((s, p) => s + p.kW, 0);
+    expect(Math.abs(kW)).toBeLessThan(1e-6);
   });
 });

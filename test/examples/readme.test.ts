@@ -25,6 +25,11 @@ describe('README', () => {
     const shown = block.replace(/^\s*```text\n/, '').replace(/```\s*$/, '');
     expect(shown.trimEnd()).toBe(runTrivar(['solve', 'examples/maple-court-riser.yaml']).stdout.trimEnd());
   });
+  it('regional conventions block matches `trivar solve examples/pine-hollow-cabin.yaml`', () => {
+    const block = readme.split('<!-- regions-output:start -->')[1]!.split('<!-- regions-output:end -->')[0]!;
+    const shown = block.replace(/^\s*```text\n/, '').replace(/```\s*$/, '');
+    expect(shown.trimEnd()).toBe(runTrivar(['solve', 'examples/pine-hollow-cabin.yaml']).stdout.trimEnd());
+  });
   it('installation correction block matches `trivar correct examples/tannery-lane-works.yaml --board "Press shop" --arrangement star-bank`', () => {
     const block = readme.split('<!-- installation-correct-output:start -->')[1]!.split('<!-- installation-correct-output:end -->')[0]!;
     const shown = block.replace(/^\s*```text\n/, '').replace(/```\s*$/, '');

@@ -6,6 +6,7 @@
 import { describe, expect, it } from 'vitest';
 import { normaliseBoard, parseBoard } from '@trivar/core';
 import { simulateBank } from '../../packages/core/src/profile/simulateBank.js';
+import { hoursBelowTarget } from '../../packages/core/src/profile/studyProfile.js';
 import { expectClose } from '../support/tolerance.js';
 
 const board = normaliseBoard(
@@ -126,5 +127,17 @@ describe('a fixed (always-on) part in the simulator', () => {
       const q = run.figures.phaseVar.reduce((s, col) => s + col[m]!, 0);
       expectClose(q, qBefore[m]! - 4000 - run.connectedKvar[m]! * 1000, { rel: 1e-12, abs: 1e-6 }, `Q at minute ${m}`);
     }
+  });
+});
+
+describe('hours below the target with a banded bank', () => {
+  it('counts importing intervals under the target PF, and those where the smallest step would pass the upper limit', () => {
+    // Four 15-minute intervals on one phase column each (board totals): P, Q in kW, kvar.
+    // tan(acos 0.97) = 0.2506 → Q above 7.52 kvar at 30 kW is below target; tan(acos 0.995) = 0.1002 → 3.01 kvar.
+    // 30/5: in target. 30/10: below, 10 − 10 = 0 < 3.01: coarse. 30/20: below, 20 − 10 = 10: not coarse. −5/10: export, not counted.
+    const col = (xs: number[]) => Float64Array.from(xs, (x) => x * 1000);
+    const zero = new Float64Array(4);
+    const f = { count: 4, lineA: [zero], neutralA: zero, phaseV: [zero], phaseW: [col([30, 30, 30, -5])], phaseVar: [col([5, 10, 20, 10])], unbalancePercent: zero };
+    expect(hoursBelowTarget(f, 0.97, 0.995, 10, 900_000)).toEqual({ hours: 0.5, stepTooCoarseHours: 0.25 });
   });
 });

@@ -72,6 +72,27 @@ describe('rebalance on installations: exhaustive enumeration', () => {
     );
   });
 
+  it('the local search lies within its reported gap (the bound adds each incomer\'s own least term)', () => {
+    fc.assert(
+      fc.property(smallInstallationArb(9, true), fc.constantFrom<'each' | 'main' | 'sub'>('each', 'each', 'main'), fc.integer({ min: 0, max: 2 }), (spec, where, conditions) => {
+        const study = {
+          measureAt: measureAt(spec, where),
+          combine: conditions === 2 ? 'weighted' : 'worst',
+          ...(conditions > 0 ? { conditions: [{ name: 'full' }, { name: 'light', factor: 0.4, weight: 3 }] } : {}),
+        };
+        const exact = run(spec, study, 'exact');
+        const local = run(spec, study, 'local-search');
+        expect(exact.proven).toBe(true);
+        const best = exact.score.after;
+        const tol = 1e-9 * Math.max(best, 1);
+        expect(local.score.lowerBound!).toBeLessThanOrEqual(best + tol);
+        expect(local.score.after).toBeGreaterThanOrEqual(best - tol);
+        expect(local.score.after - best).toBeLessThanOrEqual(local.score.gap! + tol);
+      }),
+      { numRuns: 30 },
+    );
+  });
+
   it('only the chosen board moves, and its answer is the best over that board alone', () => {
     fc.assert(
       fc.property(smallInstallationArb(12), (spec) => {

@@ -1,6 +1,10 @@
 /** HarmonicsReport → the human-readable report of `trivar harmonics`. */
 import type { DistortionReading, HarmonicsReport, ResonanceScan, CapacitorDuty, TddCheck, NeutralCheck } from '@trivar/core';
 import { fixed, renderTable, section } from './textTable.js';
+import { wrapText } from './wrapText.js';
+
+/** A prose line of the report, wrapped to the report width under its own indent. */
+const prose = (text: string, first = '  ', rest = '    ') => wrapText(text, first, rest);
 
 /** Orders shown as columns of the current table; the JSON has them all. */
 const MAX_ORDER_COLUMNS = 8;
@@ -47,16 +51,16 @@ function largestOrder(d: DistortionReading): string {
 
 function neutralLines(n: NeutralCheck): string[] {
   const lines = [
-    `  ${fixed(n.current.rms, 1)} A rms, of which ${fixed(n.current.fundamental, 1)} A at the fundamental; ${n.ratioToPhase === null ? '' : `${fixed(n.ratioToPhase, 2)} × the largest line current; `}triplen orders ${n.triplenSharePercent === null ? '-' : fixed(n.triplenSharePercent, 0)} % of its heating (rms²)`,
+    prose(`${fixed(n.current.rms, 1)} A rms, of which ${fixed(n.current.fundamental, 1)} A at the fundamental; ${n.ratioToPhase === null ? '' : `${fixed(n.ratioToPhase, 2)} × the largest line current; `}triplen orders ${n.triplenSharePercent === null ? '-' : fixed(n.triplenSharePercent, 0)} % of its heating (rms²)`),
   ];
   if (n.ratingA !== null) lines.push(`  rating ${fixed(n.ratingA, 0)} A: ${fixed(n.loadingPercent ?? 0, 0)} % loaded${n.overloaded ? ' — OVERLOADED' : ''}`);
   else lines.push('  no neutral rating in the board file (feeder.neutral.ratingA): not checked');
-  lines.push(`  practice: ${n.practice}`);
+  lines.push(prose(`practice: ${n.practice}`));
   return lines;
 }
 
 function tddLines(t: TddCheck): string[] {
-  const head = `  I_sc/I_L = ${fixed(t.shortCircuitRatio, 1)} (${t.shortCircuitRatioFrom}), I_L = ${fixed(t.demandCurrentA, 1)} A (${t.demandCurrentFrom}); table row ${t.tableRow}, TDD limit ${t.tddLimitPercent} %`;
+  const head = prose(`I_sc/I_L = ${fixed(t.shortCircuitRatio, 1)} (${t.shortCircuitRatioFrom}), I_L = ${fixed(t.demandCurrentA, 1)} A (${t.demandCurrentFrom}); table row ${t.tableRow}, TDD limit ${t.tddLimitPercent} %`);
   const table = renderTable(
     [{ header: 'line', align: 'left' }, { header: 'TDD %' }, { header: 'limit %' }, { header: 'orders over their limit', align: 'left' }, { header: 'verdict', align: 'left' }],
     t.lines.map((l) => {
@@ -64,7 +68,7 @@ function tddLines(t: TddCheck): string[] {
       return [l.phase, fixed(l.tddPercent, 1), fixed(t.tddLimitPercent, 1), over.join(', ') || '-', l.ok ? 'within' : 'EXCEEDS'];
     }),
   );
-  return [head, table, `  source: ${t.source}`];
+  return [head, table, prose(`source: ${t.source}`)];
 }
 
 /** Bank states with the same output resonate alike: one row per output, listing the states. */
@@ -106,29 +110,29 @@ function dutyLines(d: CapacitorDuty): string[] {
   const w = d.worst.figures;
   const cell = (x: number, limit: number | null) => `${fixed(x, 2)}${limit === null ? '' : ` / ${limit}`}`;
   return [
-    `  ${fixed(d.ratedV, 0)} V units${d.detuningPercent > 0 ? `, detuned p = ${fixed(d.detuningPercent, 2)} %` : ''}; capacitor fundamental voltage ${fixed(d.capacitorVoltageV, 1)} V; judged against ${d.standard === 'ieee-18' ? 'IEEE 18' : 'IEC 60831-1'}`,
+    prose(`${fixed(d.ratedV, 0)} V units${d.detuningPercent > 0 ? `, detuned p = ${fixed(d.detuningPercent, 2)} %` : ''}; capacitor fundamental voltage ${fixed(d.capacitorVoltageV, 1)} V; judged against ${d.standard === 'ieee-18' ? 'IEEE 18' : 'IEC 60831-1'}`),
     renderTable(
       [{ header: 'worst state', align: 'left' }, { header: 'branch', align: 'left' }, { header: 'V rms pu' }, { header: 'V peak pu' }, { header: 'I rms pu' }, { header: 'kvar pu' }, { header: 'verdict', align: 'left' }],
       [[d.worst.label, d.worst.branch, cell(w.voltageRms, lim.voltageRms), cell(w.voltagePeak, lim.voltagePeak), cell(w.currentRms, lim.currentRms), cell(w.kvar, lim.kvar), d.ok ? 'within limits in every state' : 'EXCEEDS']],
     ),
-    `  limits: ${d.limitsSource}`,
+    prose(`limits: ${d.limitsSource}`),
   ];
 }
 
 export function renderHarmonicsReport(r: HarmonicsReport): string {
   const out: string[] = [];
   out.push(`${r.board} — harmonics at ${r.frequencyHz} Hz`);
-  out.push(`orders solved: ${r.orders.join(', ') || 'none (no spectrum or background given: linear board)'}; state: ${r.state}`);
+  out.push(wrapText(`orders solved: ${r.orders.join(', ') || 'none (no spectrum or background given: linear board)'}; state: ${r.state}`, '', '  '));
   out.push(section('Currents (rms with harmonics; orders as % of each line’s fundamental)'));
   out.push(currentTable(r));
   out.push(section('Voltages and power factor at the board'));
   out.push(voltageTable(r));
   out.push(
-    `  board: true PF ${r.powerFactor.true === null ? '-' : fixed(r.powerFactor.true, 3)}, displacement PF ${r.powerFactor.displacement === null ? '-' : fixed(r.powerFactor.displacement, 3)} (ΣP / Σ V·I over the lines)`,
+    prose(`board: true PF ${r.powerFactor.true === null ? '-' : fixed(r.powerFactor.true, 3)}, displacement PF ${r.powerFactor.displacement === null ? '-' : fixed(r.powerFactor.displacement, 3)} (ΣP / Σ V·I over the lines)`),
   );
   const v = r.voltageDistortion;
   const overBuses = v.buses.filter((b) => !b.ok).map((b) => b.bus);
-  out.push(`  IEEE 519 voltage limits at ≤ 1 kV (${v.individualLimitPercent} % one order, ${v.thdLimitPercent} % THD): ${v.ok ? 'within on every bus voltage' : `EXCEEDED on ${overBuses.join(', ')} (see warnings)`}`);
+  out.push(prose(`IEEE 519 voltage limits at ≤ 1 kV (${v.individualLimitPercent} % one order, ${v.thdLimitPercent} % THD): ${v.ok ? 'within on every bus voltage' : `EXCEEDED on ${overBuses.join(', ')} (see warnings)`}`));
   if (r.neutral) {
     out.push(section('Neutral conductor'));
     out.push(...neutralLines(r.neutral));
@@ -139,7 +143,7 @@ export function renderHarmonicsReport(r: HarmonicsReport): string {
   }
   out.push(section(`Resonance with the supply${r.scan.shortCircuitKVA === null ? ' (ideal source: none possible)' : ` (S_sc ${fixed(r.scan.shortCircuitKVA, 0)} kVA)`}`));
   out.push(scanTable(r.scan));
-  out.push(`  scanned h = ${r.scan.orders[0]} … ${r.scan.orders.at(-1)} (${r.scan.orders.length} points, pairs ${r.scan.pairs.join(' ')}); checked against ${r.scan.checkedOrdersFrom}: ${r.scan.checkedOrders.join(', ')}`);
+  out.push(prose(`scanned h = ${r.scan.orders[0]} … ${r.scan.orders.at(-1)} (${r.scan.orders.length} points, pairs ${r.scan.pairs.join(' ')}); checked against ${r.scan.checkedOrdersFrom}: ${r.scan.checkedOrders.join(', ')}`));
   if (r.capacitorDuty) {
     out.push(section('Capacitor duty with harmonics (every bank state)'));
     out.push(...dutyLines(r.capacitorDuty));
@@ -148,15 +152,15 @@ export function renderHarmonicsReport(r: HarmonicsReport): string {
     out.push(section('Spectra used'));
     const seen = new Map<string, string[]>();
     for (const s of r.spectra) seen.set(`${s.spectrum}: ${s.source}`, [...(seen.get(`${s.spectrum}: ${s.source}`) ?? []), s.load]);
-    for (const [what, loads] of seen) out.push(`  ${what} — ${loads.join(', ')}`);
+    for (const [what, loads] of seen) out.push(prose(`${what} — ${loads.join(', ')}`));
   }
   out.push(section('Assumptions'));
-  out.push(...r.assumptions.map((a) => `  - ${a}`));
+  out.push(...r.assumptions.map((a) => prose(a, '  - ')));
   if (r.warnings.length) {
     out.push(section('Warnings'));
-    out.push(...r.warnings.map((w) => `  ! ${w.message}`));
+    out.push(...r.warnings.map((w) => prose(w.message, '  ! ')));
   }
   out.push(section('Cautions'));
-  out.push(...r.cautions.map((c) => `  - ${c}`));
+  out.push(...r.cautions.map((c) => prose(c, '  - ')));
   return `${out.join('\n')}\n`;
 }

@@ -5,7 +5,7 @@ import { REPORT_WIDTH, wrapText } from './wrapText.js';
 
 const flagWord = (f: OpenNeutralLoadReading['flag']) => (f === 'ok' ? '' : f === 'over' ? 'OVER' : 'under');
 
-export function openNeutralBlock(study: OpenNeutralStudy, label: (phase: string) => string = (p) => p): string {
+export function openNeutralBlock(study: OpenNeutralStudy, label: (phase: string) => string = (p) => p, sourceNeutralPoint = 'the source star point'): string {
   if (!study.applicable) return wrapText(`not applicable: ${study.note ?? ''}`, '  ');
   const other = study.otherStates[0];
   const impedance = study.impedanceModel;
@@ -36,7 +36,7 @@ export function openNeutralBlock(study: OpenNeutralStudy, label: (phase: string)
     ...(other ? ['V alt: another solution of the same equations'] : []),
     ...(study.loads.some((l) => l.belowLowVoltageRule) ? ['*: below the low-voltage rule, taken as an impedance'] : []),
   ];
-  const bar = study.barVoltage ? `  neutral bar floats to ${fixed(study.barVoltage.magnitude, 1)} V from the source star point` : '';
+  const bar = study.barVoltage ? `  neutral bar floats to ${fixed(study.barVoltage.magnitude, 1)} V from ${sourceNeutralPoint}` : '';
   return [
     wrapText(OPEN_NEUTRAL_METHOD, '  '),
     ...(bar ? [bar] : []),

@@ -129,6 +129,11 @@ function bankLines(r: ProfileResult): string {
       b.yearsToContactorLife === null ? '' : ` — the busiest step reaches that in ${fixed(b.yearsToContactorLife, 1)} years`
     }`,
     `  billing power factor ${fixed(r.before.energy.billingPf, 3)} → ${fixed(b.after.energy.billingPf, 3)}; leading import ${hours(r.before.leadingHours)} h → ${hours(b.after.leadingHours)} h`,
+    ...(b.belowTarget && b.belowTarget.hours > 0
+      ? [
+          `  board PF below ${pf(set.targetPf)} with the bank: ${hours(b.belowTarget.hours)} h of import, ${hours(b.belowTarget.stepTooCoarseHours)} h of them with no step small enough to stay under ${pf(set.upperPf!)} (steps coarse for this band at that load)`,
+        ]
+      : []),
     `  largest voltage rise from the bank ${fixed(b.voltageRisePercent, 2)} % of nominal (${b.voltageRiseAt}); highest phase voltage with it ${fixed(Math.max(...b.after.voltages.map((v) => v.maxPercent)), 1)} %`,
   ];
   return lines.join('\n');

@@ -1,6 +1,7 @@
 /** RebalanceReport → the text report of `trivar rebalance`. */
-import type { ConditionComparison, ConditionFigures, RebalanceReport } from '@trivar/core';
+import { labelIn, type ConditionComparison, type ConditionFigures, type RebalanceReport } from '@trivar/core';
 import { fixed, renderTable, renderTableWithin, section } from './textTable.js';
+import { wrapText } from './wrapText.js';
 
 const amps = (x: number | null) => (x === null ? '-' : fixed(x, 1));
 const percent = (x: number | null) => (x === null ? '-' : fixed(x, 2));
@@ -48,14 +49,16 @@ function verdict(r: RebalanceReport): string {
 
 function workOrder(r: RebalanceReport): string {
   if (r.moves.length === 0) return '  (no moves)';
+  // The work order speaks the file's naming (L1-N where the file wrote L1-N).
+  const on = (c: string) => labelIn(r.board.phaseNames ?? 'A/B/C', c);
   if (isInstallation(r))
     return renderTableWithin(
       [{ header: 'board', align: 'left' }, { header: 'no.' }, { header: 'circuit', align: 'left' }, { header: 'now on', align: 'left' }, { header: 'move to', align: 'left' }],
-      r.moves.map((m) => [m.board, String(m.circuit), m.name, m.from, m.to]),
+      r.moves.map((m) => [m.board, String(m.circuit), m.name, on(m.from), on(m.to)]),
     );
   return renderTable(
     [{ header: 'no.' }, { header: 'circuit', align: 'left' }, { header: 'now on', align: 'left' }, { header: 'move to', align: 'left' }],
-    r.moves.map((m) => [String(m.circuit), m.name, m.from, m.to]),
+    r.moves.map((m) => [String(m.circuit), m.name, on(m.from), on(m.to)]),
   );
 }
 
@@ -115,7 +118,7 @@ function moveTable(r: RebalanceReport): string {
     String(t.movesUsed),
   ]);
   return renderTable(
-    [{ header: 'moves allowed' }, { header: 'score' }, { header: 'bound' }, { header: '', align: 'left' }, { header: 'moves used' }],
+    [{ header: 'moves allowed' }, { header: 'score' }, { header: 'bound' }, { header: 'status', align: 'left' }, { header: 'moves used' }],
     rows,
   );
 }
@@ -125,11 +128,11 @@ export function renderRebalanceReport(r: RebalanceReport): string {
   const installation = isInstallation(r);
   const parts: string[] = [
     r.board.name,
-    `Rebalancing: ${r.search.movable} of ${r.search.circuits} circuits can move${r.search.pinned ? `, ${r.search.pinned} pinned` : ''}${installation ? ` (boards: ${r.boards.movable.join(', ')})` : ''}`,
-    `Score: ${scoreWords(r)}`,
+    wrapText(`Rebalancing: ${r.search.movable} of ${r.search.circuits} circuits can move${r.search.pinned ? `, ${r.search.pinned} pinned` : ''}${installation ? ` (boards: ${r.boards.movable.join(', ')})` : ''}`, '', '  '),
+    wrapText(`Score: ${scoreWords(r)}`, '', '  '),
     `  fast model:       now ${score(r.score.before)}  →  after ${score(r.score.after)}   lower bound ${r.score.lowerBound === null ? '-' : score(r.score.lowerBound)}`,
     `  network re-solve: now ${score(r.solvedScore.before)}  →  after ${score(r.solvedScore.after)}`,
-    `  ${verdict(r)}`,
+    wrapText(verdict(r), '  ', '    '),
   ];
   parts.push(section(`Work order (${r.moves.length} move${r.moves.length === 1 ? '' : 's'})`) + workOrder(r));
   const names = [...new Set(r.conditions.map((c) => c.name))];
@@ -147,7 +150,7 @@ export function renderRebalanceReport(r: RebalanceReport): string {
       parts.push(section(title) + conditionTable(c, lines));
     }
   if (r.moveTable && r.moveTable.length > 1) parts.push(section('Best score by moves allowed') + moveTable(r));
-  if (r.notes.length) parts.push(section('Notes') + r.notes.map((n) => `  * ${n}`).join('\n'));
-  parts.push(section('Cautions') + r.cautions.map((c) => `  * ${c}`).join('\n'));
+  if (r.notes.length) parts.push(section('Notes') + r.notes.map((n) => wrapText(n, '  * ', '    ')).join('\n'));
+  parts.push(section('Cautions') + r.cautions.map((c) => wrapText(c, '  * ', '    ')).join('\n'));
   return `${parts.join('\n')}\n`;
 }

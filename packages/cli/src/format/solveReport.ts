@@ -1,5 +1,5 @@
 /** BoardResult → the human-readable report of `trivar solve`. */
-import { bandWords, labelIn, type BoardResult } from '@trivar/core';
+import { bandWords, labelIn, regionWords, type BoardResult } from '@trivar/core';
 import { fixed, renderTable, renderTableWithin, section } from './textTable.js';
 import { REPORT_WIDTH, wrapText } from './wrapText.js';
 import { exportSentence, isExport, pfCell, varWords } from './powerFlowWords.js';
@@ -27,11 +27,14 @@ function dropDefinition(r: BoardResult): string {
 /** A phase, line pair or connection (A/B/C inside) as this board's report labels it. */
 export const labeller = (r: BoardResult) => (term: string) => labelIn(r.conventions.phaseNames, term);
 
+/** The region's words for this board (centre tap and grounded conductor in North America). */
+export const wordsOf = (r: BoardResult) => regionWords(r.conventions.region, r.board.system as Parameters<typeof regionWords>[1]);
+
 /** The voltage-limit verdict, judged on the printed figures as the warnings are. */
 export function voltageVerdictLine(r: BoardResult): string {
   const c = r.voltageCheck;
   const verdict = { within: 'every voltage within', under: 'BELOW the lower limit', over: 'ABOVE the upper limit', 'under-and-over': 'OUTSIDE both limits' }[c.verdict];
-  return `${verdict} ${bandWords(c.limits)} (${c.limits.preset}); lowest ${fixed(c.lowest.percent, 1)} % at ${c.lowest.at}, highest ${fixed(c.highest.percent, 1)} % at ${c.highest.at}`;
+  return `limits ${bandWords(c.limits)} (${c.limits.preset}): ${verdict}; lowest ${fixed(c.lowest.percent, 1)} % at ${c.lowest.at}, highest ${fixed(c.highest.percent, 1)} % at ${c.highest.at}`;
 }
 
 export function headerLines(r: BoardResult): string[] {
@@ -94,7 +97,13 @@ function phaseTable(r: BoardResult): string {
   );
   const ll = r.lineToLine.map((l) => `${label(l.pair)} ${fixed(l.voltage.magnitude, 1)} V (${fixed(l.voltagePercent, 1)} %)`).join('   ');
   const notes = [dropDefinition(r)];
-  if (r.neutral) notes.push('N row: neutral bar voltage to the source star point, and the neutral current.');
+  const words = wordsOf(r);
+  if (r.neutral)
+    notes.push(
+      words.neutralConductor === 'neutral'
+        ? `N row: neutral bar voltage to ${words.sourceNeutralPoint}, and the neutral current.`
+        : `N row: neutral bar voltage to ${words.sourceNeutralPoint}, and the current in the ${words.neutralConductor}.`,
+    );
   if (r.loads.some((l) => /^[ABC]-[ABC]$|delta/.test(l.connection)))
     notes.push('Line-to-line loads split their power unevenly between their two lines: one line leads, the other lags.');
   for (const p of r.phases) {
@@ -239,7 +248,7 @@ export function renderSolveReport(r: BoardResult): string {
     section('Power balance') + powerBlock(r),
   ];
   parts.push(section('Voltage limits') + wrapText(voltageVerdictLine(r), '  ') + `\n${wrapText(r.voltageCheck.limits.source, '  (', '   ', REPORT_WIDTH - 1)})`);
-  if (r.openNeutral) parts.push(section('If the neutral conductor broke') + openNeutralBlock(r.openNeutral, labeller(r)));
+  if (r.openNeutral) parts.push(section('If the neutral conductor broke') + openNeutralBlock(r.openNeutral, labeller(r), wordsOf(r).sourceNeutralPoint));
   parts.push(section('Warnings') + (r.warnings.length ? r.warnings.map((w) => wrapText(w.message, '  ! ')).join('\n') : '  none'));
   parts.push(section('Notes') + r.cautions.map((c) => wrapText(c, '  * ')).join('\n'));
   return `${parts.join('\n')}\n`;

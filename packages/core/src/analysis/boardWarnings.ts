@@ -3,6 +3,8 @@
  * All wording for board results lives here.
  */
 import type { BoardWarning, NeutralReading, PhaseReading, LoadReading, TransformerReading, UnbalanceReading, LineToLineReading } from './boardResult.js';
+import { regionWords } from '../board/conventions/regionWords.js';
+import { boardVoltagePoints } from './voltageCheck.js';
 import { bandWords, judgeVoltage, presetLimits, type VoltageLimits } from '../board/conventions/voltageLimits.js';
 
 export const WARNING_THRESHOLDS = {
@@ -71,10 +73,7 @@ export function boardWarnings(input: {
     });
   const band = bandWords(limits);
   const limitOf = (side: 'under' | 'over') => (side === 'under' ? 100 - limits.underPercent : 100 + limits.overPercent);
-  const boardVoltages =
-    input.hasNeutral === false && input.lineToLine?.length
-      ? input.lineToLine.map((l) => ({ at: `line-to-line ${label(l.pair)}`, percent: l.voltagePercent, volts: l.voltage.magnitude }))
-      : phases.map((p) => ({ at: `phase ${label(p.phase)}`, percent: p.voltagePercent, volts: p.voltage.magnitude }));
+  const boardVoltages = boardVoltagePoints(phases, input.lineToLine ?? [], input.hasNeutral ?? true, label);
   for (const v of boardVoltages) {
     const side = judgeVoltage(limits, v.percent);
     if (side !== 'within')
@@ -120,7 +119,5 @@ export const GENERAL_CAUTION =
 export const NEUTRAL_CAUTION =
   'A neutral carrying more current than a phase conductor can overheat without tripping any overcurrent device (the neutral is normally unprotected). Check its size and terminations.';
 
-export const OPEN_NEUTRAL_CAUTIONS: readonly string[] = [
-  'A broken neutral is a hazardous condition: line-to-neutral equipment on the lightly loaded phases can see up to the line-to-line voltage and be destroyed, and in TN-C-S installations exposed metalwork can become live.',
-  'Never switch, fuse or disconnect the neutral (PEN) on its own; inspect neutral terminations and bonding regularly.',
-];
+/** The broken-neutral cautions in IEC wording (PEN, TN-C-S); `regionWords` gives each region's. */
+export const OPEN_NEUTRAL_CAUTIONS: readonly string[] = regionWords('iec', 'three-phase-4wire').openNeutralCautions;

@@ -13,7 +13,12 @@ import { solveNetwork, terminalVoltage, type NetworkSolution, type SolveOptions 
 import { solveNetworkByNewton } from '../network/solveNetworkByNewton.js';
 import { followNeutralBreak, withNeutralFault } from './followNeutralBreak.js';
 import type { OpenNeutralLoadReading, OpenNeutralState, OpenNeutralStudy, OpenNeutralWithoutRule } from './boardResult.js';
-import { OPEN_NEUTRAL_CAUTIONS, WARNING_THRESHOLDS } from './boardWarnings.js';
+import { WARNING_THRESHOLDS } from './boardWarnings.js';
+import { regionWords } from '../board/conventions/regionWords.js';
+import { conventionsOf } from '../board/conventions/boardConventions.js';
+
+/** The cautions in the words of the board's region (see regionWords). */
+const openNeutralCautionsOf = (board: Board) => regionWords(conventionsOf(board).region, board.system).openNeutralCautions;
 import { OPEN_NEUTRAL_LIMITS, openNeutralFindings } from './openNeutralWording.js';
 
 /** "No low-voltage rule": constant power held down to 5 % of nominal, low enough that no state this study reports gets there in practice. */
@@ -158,7 +163,7 @@ export function studyOpenNeutral(board: Board, options?: SolveOptions): OpenNeut
     applicable: true,
     note: null,
     ...reached,
-    cautions: OPEN_NEUTRAL_CAUTIONS,
+    cautions: openNeutralCautionsOf(board),
     reachedFromIntact: path.reachedOpen,
     collapseAtOhms: path.lostAtOhms,
     impedanceModel,

@@ -15,12 +15,26 @@ export interface VoltageExtreme {
 
 export interface VoltageCheck {
   readonly limits: VoltageLimits;
-  /** Board voltages judged: line-to-neutral (with a neutral) or line-to-line. */
+  /** Board voltages judged: line-to-neutral and line-to-line (with a neutral), or line-to-line only. */
   readonly boardVoltages: 'line-to-neutral' | 'line-to-line';
   readonly lowest: VoltageExtreme;
   readonly highest: VoltageExtreme;
   /** `within` when every board and load voltage is inside the limits (as printed, 0.1 %). */
   readonly verdict: 'within' | 'under' | 'over' | 'under-and-over';
+}
+
+/**
+ * The board's own voltages that are judged: line-to-neutral (with a neutral) and
+ * line-to-line (where there are two lines or more), in report labels.
+ */
+export function boardVoltagePoints(
+  phases: readonly PhaseReading[],
+  lineToLine: readonly LineToLineReading[],
+  hasNeutral: boolean,
+  label: (phaseOrPair: string) => string,
+): (VoltageExtreme & { readonly volts: number })[] {
+  const own = hasNeutral || lineToLine.length === 0 ? phases.map((p) => ({ percent: p.voltagePercent, at: `phase ${label(p.phase)}`, volts: p.voltage.magnitude })) : [];
+  return [...own, ...lineToLine.map((l) => ({ percent: l.voltagePercent, at: `line-to-line ${label(l.pair)}`, volts: l.voltage.magnitude }))];
 }
 
 export function checkVoltages(input: {
@@ -33,9 +47,7 @@ export function checkVoltages(input: {
 }): VoltageCheck {
   const { limits, label } = input;
   const byNeutral = input.hasNeutral || input.lineToLine.length === 0;
-  const points: VoltageExtreme[] = byNeutral
-    ? input.phases.map((p) => ({ percent: p.voltagePercent, at: `phase ${label(p.phase)}` }))
-    : input.lineToLine.map((l) => ({ percent: l.voltagePercent, at: `line-to-line ${label(l.pair)}` }));
+  const points: VoltageExtreme[] = boardVoltagePoints(input.phases, input.lineToLine, input.hasNeutral, label).map(({ percent, at }) => ({ percent, at }));
   for (const load of input.loads)
     if (load.energised) for (const b of load.branches) points.push({ percent: b.voltagePercent, at: `"${load.name}"` });
   const lowest = points.reduce((a, b) => (b.percent < a.percent ? b : a));

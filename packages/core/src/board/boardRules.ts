@@ -18,10 +18,14 @@ const RATING_FORMS = 'exactly one rating: kW (pf 1 when not given), kW with pf, 
 function ruleVoltageGiven(board: BoardBaseSpec): InputIssue[] {
   const { voltage, system } = board.supply;
   const path = 'supply.voltage';
-  if ('written' in voltage) {
+  if (voltage.written !== undefined) {
     // The schema read the notation; whether it fits the system can only be said here.
     const read = readVoltageNotation(voltage.written, system);
-    return read.ok ? [] : [{ ...inputIssue('bad_voltage_notation', path, read.problem, voltage.written) }];
+    if (!read.ok) return [inputIssue('bad_voltage_notation', path, read.problem, voltage.written)];
+    const { lineToLineV, lineToNeutralV } = read.notation;
+    if (voltage.lineToLine !== lineToLineV || voltage.lineToNeutral !== lineToNeutralV)
+      return [inputIssue('conflict', `${path}.written`, `the figures of the notation "${voltage.written}" (${lineToLineV} V and ${lineToNeutralV} V), or no written`, `${voltage.lineToLine ?? '-'} V and ${voltage.lineToNeutral ?? '-'} V`)];
+    return [];
   }
   const { lineToLine, lineToNeutral } = voltage;
   if (lineToLine === undefined && lineToNeutral === undefined)

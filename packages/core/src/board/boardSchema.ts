@@ -145,6 +145,8 @@ export const supplySchema = z.strictObject({
         .strictObject({
           lineToLine: within(PHYSICAL_RANGES.voltage).optional().describe('nominal line-to-line voltage, V'),
           lineToNeutral: within(PHYSICAL_RANGES.voltage).optional().describe('nominal line-to-neutral voltage, V'),
+          // A validated spec keeps the notation it was read from, and must validate again as it is.
+          written: z.string().max(40).optional().describe('the notation this was read from (set by trivar; write the notation itself as the voltage)'),
         })
         .describe('give lineToLine or lineToNeutral'),
       voltageNotationSchema,

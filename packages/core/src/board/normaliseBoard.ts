@@ -25,7 +25,7 @@ export function balancedAnglesDeg(system: BoardBaseSpec['supply']['system'], seq
 
 function nominalVoltages(spec: BoardBaseSpec): { ln: number; ll: number | null } {
   const voltage = spec.supply.voltage;
-  const written = 'written' in voltage ? readVoltageNotation(voltage.written, spec.supply.system) : null;
+  const written = voltage.written !== undefined ? readVoltageNotation(voltage.written, spec.supply.system) : null;
   if (written?.ok) return nominalOfNotation(written.notation, spec.supply.system);
   const { lineToLine, lineToNeutral } = voltage;
   const ratio = spec.supply.system === 'split-phase' ? 2 : Math.sqrt(3);

@@ -8,6 +8,7 @@
  * combinations in ACCEPTED_SETS. Loads that no column drives are off unless the
  * caller keeps them at their rating.
  */
+import { readPhaseTerm } from '../board/conventions/phaseNames.js';
 import type { Board, BoardLoad, PhaseId } from '../board/boardModel.js';
 import type { ComplexValue } from '../complex.js';
 import { InputError, inputIssue, type InputIssue } from '../errors.js';
@@ -41,7 +42,8 @@ export interface ColumnPlan {
 }
 
 const HEADER = /^(.+?)\s*\[\s*([A-Za-z]+)\s*\]$/;
-const PHASE = /^phase\s+([ABC])$/i;
+/** "phase A [kW]" or, in IEC naming, "phase L1 [kW]" (either naming, whatever the board file uses). */
+const PHASE = /^phase\s+([ABC]|L[123])$/i;
 
 const where = (column: number, header: string) => `header, column ${column + 1} ("${header}")`;
 
@@ -68,7 +70,7 @@ export function planColumns(board: Board, header: readonly string[], options: Co
     const at = where(c + 1, cell);
     const m = HEADER.exec(cell);
     if (!m || !(QUANTITIES as readonly string[]).includes(m[2]!)) {
-      issues.push(inputIssue('bad_header', at, `"<load, group or phase A/B/C> [<${QUANTITIES.join('|')}>]", e.g. "oven [kW]"`, cell));
+      issues.push(inputIssue('bad_header', at, `"<load, group or phase A/B/C or L1/L2/L3> [<${QUANTITIES.join('|')}>]", e.g. "oven [kW]"`, cell));
       return;
     }
     const name = m[1]!;
@@ -77,7 +79,7 @@ export function planColumns(board: Board, header: readonly string[], options: Co
     if (!target) {
       const phase = PHASE.exec(name);
       if (phase) {
-        const p = phase[1]!.toUpperCase() as PhaseId;
+        const p = (readPhaseTerm(phase[1]!.toUpperCase())?.canonical ?? phase[1]!.toUpperCase()) as PhaseId;
         if (!board.phases.includes(p) || !board.hasNeutral) {
           issues.push(inputIssue('unknown_target', at, `a phase of this board with a neutral (${board.hasNeutral ? board.phases.join(', ') : 'this board has none'})`, name));
           return;
@@ -100,7 +102,7 @@ export function planColumns(board: Board, header: readonly string[], options: Co
         target = { kind: 'group', loads: members as number[], columns: {} };
       } else if (loadIndex.has(name)) target = { kind: 'load', loads: [loadIndex.get(name)!], columns: {} };
       else {
-        issues.push(inputIssue('unknown_target', at, 'a load name on the board, a group from profile.groups, or "phase A/B/C"', name));
+        issues.push(inputIssue('unknown_target', at, 'a load name on the board, a group from profile.groups, or "phase A/B/C" ("phase L1/L2/L3")', name));
         return;
       }
       byName.set(name, target);

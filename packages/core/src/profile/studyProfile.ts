@@ -90,6 +90,12 @@ export interface ProfileBankResult {
   /** Largest rise of any phase voltage the bank causes in one interval, % of nominal, and when. */
   readonly voltageRisePercent: number;
   readonly voltageRiseAt: string;
+  /**
+   * Board-total PF below the target while importing, hours; and of those, the hours in which even
+   * the smallest step would have carried the PF past the band's upper limit (steps too coarse for
+   * the band at that load). Null for a bank with single-phase steps or without an upper limit.
+   */
+  readonly belowTarget: { readonly hours: number; readonly stepTooCoarseHours: number } | null;
   readonly after: ProfileSummary;
 }
 
@@ -127,6 +133,27 @@ export function resolveLimits(board: Board, spec: ProfileSpec | undefined): Reso
     voltageLowPercent: l?.voltageLowPercent ?? PROFILE_DEFAULTS.voltageLowPercent,
     voltageHighPercent: l?.voltageHighPercent ?? PROFILE_DEFAULTS.voltageHighPercent,
   };
+}
+
+/** See ProfileBankResult.belowTarget: board totals, import only; a step's kvar taken at nominal voltage. */
+export function hoursBelowTarget(f: IntervalFigures, targetPf: number, upperPf: number, smallestKvar: number, intervalMs: number): { hours: number; stepTooCoarseHours: number } {
+  const tanTarget = Math.tan(Math.acos(targetPf));
+  const tanUpper = Math.tan(Math.acos(Math.min(1, upperPf)));
+  let below = 0;
+  let coarse = 0;
+  for (let i = 0; i < f.count; i++) {
+    let w = 0;
+    let q = 0;
+    for (let k = 0; k < f.phaseW.length; k++) {
+      w += f.phaseW[k]![i]!;
+      q += f.phaseVar[k]![i]!;
+    }
+    if (w <= 0 || q <= w * tanTarget) continue;
+    below++;
+    if (q - smallestKvar * 1000 < w * tanUpper) coarse++;
+  }
+  const h = intervalMs / 3_600_000;
+  return { hours: below * h, stepTooCoarseHours: coarse * h };
 }
 
 export function studyProfile(input: ProfileStudyInput, options: ProfileStudyOptions = {}): ProfileStudy {
@@ -216,6 +243,7 @@ export function studyProfile(input: ProfileStudyInput, options: ProfileStudyOpti
         for (let k = 0; k < board.phases.length; k++) rise[i] = Math.max(rise[i]!, run.figures.phaseV[k]![i]! - before.phaseV[k]![i]!);
       const worstRise = maximumOf(rise);
       const { upperPf, ...rest } = settings;
+      const belowTarget = upperPf !== undefined && steps.length && steps.every((x) => x.channel === 'ABC') ? hoursBelowTarget(run.figures, settings.targetPf, upperPf, Math.min(...steps.map((x) => x.kvar)), input.intervalMs) : null;
       bank = {
         source,
         sizedFromProfile: source === 'profile',
@@ -230,6 +258,7 @@ export function studyProfile(input: ProfileStudyInput, options: ProfileStudyOpti
         yearsToContactorLife: busiest > 0 ? PROFILE_DEFAULTS.contactorLifeOperations / busiest : null,
         voltageRisePercent: (100 * worstRise.value) / board.nominalLineToNeutralV,
         voltageRiseAt: label(worstRise.index),
+        belowTarget,
         after: summariseFigures(run.figures, ctx),
       };
     }

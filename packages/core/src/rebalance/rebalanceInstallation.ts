@@ -6,6 +6,7 @@
  *     ─branch-and-bound (small boards)─▶ proven answer, or polygon lower bound ─▶ gap
  *     ─move table / fewest moves─▶ chosen answer ─network solver─▶ before/after figures
  */
+import { conventionsOf } from '../board/conventions/boardConventions.js';
 import type { Installation } from '../board/boardModel.js';
 import type { ConnectionSpec } from '../board/boardSchema.js';
 import { InputError, inputIssue } from '../errors.js';
@@ -32,6 +33,7 @@ import { rebalanceTree, type RebalanceTree } from './rebalanceTree.js';
 import { searchExact } from './searchExact.js';
 import { greedyChoice, searchLocal, trimMoves } from './searchLocal.js';
 import { searchMeetInMiddle } from './searchMeetInMiddle.js';
+import { termBoundFor } from './termBounds.js';
 import { installationInCondition, moveInstallationCircuits } from './applyMoves.js';
 import type { CapacityExcess, CircuitMove, ConditionComparison, MoveTableRow, RebalanceReport } from './rebalanceResult.js';
 import { REBALANCE_CAUTIONS, REBALANCE_NOTES } from './rebalanceWording.js';
@@ -124,7 +126,14 @@ interface Answer {
 }
 
 /** Best answer with at most `limit` moves: local search, then branch-and-bound where it pays. */
-function answerWithin(p: AssignmentProblem, single: number | null, limit: number, o: ResolvedOptions, tie: number, hints: readonly ScoredChoice[]): Answer {
+/** What every answer of one study shares: the problem, its one-quantity index, the decomposed bound. */
+interface Search {
+  readonly p: AssignmentProblem;
+  readonly single: number | null;
+  readonly termBound: ((bounds: Float64Array) => number) | null;
+}
+
+function answerWithin({ p, single, termBound }: Search, limit: number, o: ResolvedOptions, tie: number, hints: readonly ScoredChoice[]): Answer {
   const n = p.circuitCount;
   const starts = [homeChoice(p)];
   if (limit >= n) starts.push(greedyChoice(p));
@@ -143,7 +152,12 @@ function answerWithin(p: AssignmentProblem, single: number | null, limit: number
     proven = exact.complete;
     nodes = exact.nodes;
   }
-  let lowerBound: number | null = proven ? best.score : p.score(magnitudeBoundsWithMoveLimit(p, limit));
+  let lowerBound: number | null = null;
+  if (proven) lowerBound = best.score;
+  else {
+    const bounds = magnitudeBoundsWithMoveLimit(p, limit);
+    lowerBound = termBound ? Math.max(p.score(bounds), termBound(bounds)) : p.score(bounds);
+  }
   if (!proven && lowerBound !== null && best.excess <= tie && lowerBound <= best.score + tie) proven = lowerBound >= best.score - tie;
   // A score that falls as a figure grows (only possible for a custom one) voids the bound.
   if (lowerBound !== null && lowerBound > best.score + tie) lowerBound = null;
@@ -171,6 +185,7 @@ function solvedFigures(name: string, board: string, result: BoardResult): Condit
 
 /** Capacity below what no spread of the movable circuits can avoid is a bad study, whatever the move limit. */
 function checkCapacity(built: BuiltProblem, study: ResolvedRebalance, tie: number): void {
+  if (study.lineCapacityA.every((c) => c === Infinity)) return;
   const bounds = magnitudeBoundsWithMoveLimit(built.problem, built.problem.circuitCount);
   const several = built.layouts.length > new Set(built.layouts.map((l) => l.condition)).size;
   // Parseval: the largest line current is at least the part no assignment changes (|I1|, or the split-phase share).
@@ -262,7 +277,8 @@ export function rebalanceInstallation(installation: Installation, study: unknown
   const tie = tieTolerance(home.score);
   checkCapacity(built, resolved, tie);
 
-  const main = answerWithin(p, built.singleQuantity, limit, o, tie, []);
+  const search: Search = { p, single: built.singleQuantity, termBound: o.objective ? null : termBoundFor(p, built.layouts, resolved.aim, resolved.combine) };
+  const main = answerWithin(search, limit, o, tie, []);
   let chosen = main;
   let table: MoveTableRow[] | null = null;
   const wantTable = o.moveTable || resolved.nearBestPercent !== null;
@@ -270,7 +286,7 @@ export function rebalanceInstallation(installation: Installation, study: unknown
     table = [];
     let previous: Answer | null = null;
     for (let m = forced; m <= limit; m++) {
-      let row: Answer = m === limit ? main : answerWithin(p, built.singleQuantity, m, o, tie, previous ? [main.best, previous.best] : [main.best]);
+      let row: Answer = m === limit ? main : answerWithin(search, m, o, tie, previous ? [main.best, previous.best] : [main.best]);
       // An answer with fewer moves is allowed with more: rows never get worse.
       if (previous && previous.best.score <= row.best.score - tie && previous.best.excess <= tie) row = { ...row, best: previous.best };
       table.push({ moves: m, score: row.best.score, lowerBound: row.lowerBound, proven: row.proven, movesUsed: row.best.moves, withinCapacity: row.best.excess <= tie });
@@ -281,7 +297,7 @@ export function rebalanceInstallation(installation: Installation, study: unknown
       const best = Math.min(main.best.score, ...table.map((r) => r.score));
       const target = best * (1 + resolved.nearBestPercent / 100) + tie;
       const row = table.find((r) => r.score <= target && r.withinCapacity);
-      if (row && row.moves < limit) chosen = answerWithin(p, built.singleQuantity, row.moves, o, tie, [main.best]);
+      if (row && row.moves < limit) chosen = answerWithin(search, row.moves, o, tie, [main.best]);
     }
   }
 
@@ -355,7 +371,7 @@ export function rebalanceInstallation(installation: Installation, study: unknown
   const lb = chosen.lowerBound;
   const main0 = tree.boards[0]!;
   return {
-    board: { name: tree.boards.length > 1 ? installation.name : main0.name, system: main0.system },
+    board: { name: tree.boards.length > 1 ? installation.name : main0.name, system: main0.system, phaseNames: conventionsOf(main0).phaseNames },
     boards: {
       all: tree.names,
       movable: tree.names.filter((_, b) => resolved.movableBoards[b]),

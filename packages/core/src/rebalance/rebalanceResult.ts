@@ -2,6 +2,7 @@
  * What a rebalancing study returns: plain JSON data, the same for the library
  * and `trivar rebalance --json`. Currents in A, unbalance in %.
  */
+import type { PhaseNaming } from '../board/conventions/phaseNames.js';
 import type { ConnectionSpec } from '../board/boardSchema.js';
 import type { AimWeights, ConditionFigures } from './rebalanceObjective.js';
 
@@ -65,7 +66,8 @@ export interface CapacityExcess {
 
 export interface RebalanceReport {
   /** The board, or the installation (its name) when it has several boards. */
-  readonly board: { readonly name: string; readonly system: string };
+  /** `phaseNames`: how the file names phases; moves stay in A/B/C here, reports relabel them. */
+  readonly board: { readonly name: string; readonly system: string; readonly phaseNames?: PhaseNaming };
   /** Every board (main board first, then the file's order), those whose circuits could move, and those whose incomers the score reads. */
   readonly boards: { readonly all: readonly string[]; readonly movable: readonly string[]; readonly measured: readonly string[] };
   /** The weights of the built-in score, or `custom` for a caller's objective. */

@@ -6,6 +6,10 @@
  */
 import { isMap, isSeq, parseDocument, type YAMLMap } from 'yaml';
 import type { CircuitMove } from './rebalanceResult.js';
+import { readPhaseTerm, spellIn } from '../board/conventions/phaseNames.js';
+
+/** The new connection in the naming the file wrote the old one in (L1-N for a file in L1/L2/L3). */
+const asWritten = (old: unknown, to: string) => spellIn((typeof old === 'string' && readPhaseTerm(old)?.naming) || 'A/B/C', to);
 
 type Move = Pick<CircuitMove, 'circuit' | 'name' | 'to'> & { readonly board?: string };
 
@@ -45,7 +49,7 @@ export function rewriteBoardText(text: string, moves: readonly Move[]): string {
     for (const m of moves) {
       const load = jsonLoads(file, m)[m.circuit - 1];
       if (!load || load.name !== m.name) throw mismatch(m);
-      load.connection = m.to;
+      load.connection = asWritten(load.connection, m.to);
     }
     return `${JSON.stringify(file, null, 2)}\n`;
   }
@@ -55,7 +59,7 @@ export function rewriteBoardText(text: string, moves: readonly Move[]): string {
     if (!isSeq(loads)) throw new Error('rewriteBoardText: the text has no loads list');
     const load = loads.items[m.circuit - 1];
     if (!isMap(load) || load.get('name') !== m.name) throw mismatch(m);
-    load.set('connection', m.to);
+    load.set('connection', asWritten(load.get('connection'), m.to));
   }
   return doc.toString();
 }

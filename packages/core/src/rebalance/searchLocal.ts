@@ -24,7 +24,35 @@ export interface LocalSearchOptions {
   readonly tie: number;
 }
 
-/** A working assignment with its running sums, so one change costs O(Q). */
+/**
+ * Per circuit, the quantities any of its options changes; null when every circuit changes every
+ * quantity (a single board). On an installation a circuit only reaches the incomers on its path to
+ * the supply, so a change need not touch the others' sums or magnitudes.
+ */
+const touchedCache = new WeakMap<AssignmentProblem, Int32Array[] | null>();
+function touchedQuantities(p: AssignmentProblem): Int32Array[] | null {
+  if (touchedCache.has(p)) return touchedCache.get(p)!;
+  const q = p.quantityCount;
+  const lists = Array.from({ length: p.circuitCount }, (_, i) => {
+    const list: number[] = [];
+    for (let j = 0; j < q; j++) {
+      let used = false;
+      for (let k = 0; k < p.optionCounts[i]! && !used; k++) {
+        const at = contributionOffset(p, i, k) + 2 * j;
+        used = p.contributions[at] !== 0 || p.contributions[at + 1] !== 0;
+      }
+      if (used) list.push(j);
+    }
+    return Int32Array.from(list);
+  });
+  // Worth the indirection only when a change leaves a good share of the quantities alone.
+  const mean = lists.reduce((s, l) => s + l.length, 0) / Math.max(lists.length, 1);
+  const result = mean <= 0.75 * q ? lists : null;
+  touchedCache.set(p, result);
+  return result;
+}
+
+/** A working assignment with its running sums and magnitudes, so one change costs O(Q) or less. */
 class Walker {
   readonly choice: Int32Array;
   readonly sums: Float64Array;
@@ -32,7 +60,11 @@ class Walker {
   score = 0;
   excess = 0;
   private readonly trial: Float64Array;
+  /** Magnitudes of `sums`: always current on the sparse path; scratch on the dense one. */
   private readonly mags: Float64Array;
+  /** Magnitudes of a trial: equal to `mags` outside a trial. */
+  private readonly trialMags: Float64Array;
+  private readonly touched: Int32Array[] | null;
 
   constructor(
     readonly p: AssignmentProblem,
@@ -43,6 +75,8 @@ class Walker {
     this.sums = new Float64Array(2 * p.quantityCount);
     this.trial = new Float64Array(2 * p.quantityCount);
     this.mags = new Float64Array(p.quantityCount);
+    this.trialMags = new Float64Array(p.quantityCount);
+    this.touched = touchedQuantities(p);
     this.sums.set(p.base);
     for (let i = 0; i < p.circuitCount; i++) this.add(this.sums, i, this.choice[i]!, 1);
     this.moves = countMoves(p, this.choice);
@@ -56,6 +90,7 @@ class Walker {
 
   private rescore(): void {
     magnitudesOf(this.sums, this.mags);
+    this.trialMags.set(this.mags);
     this.score = this.p.score(this.mags);
     this.excess = limitExcess(this.p, this.mags);
   }
@@ -79,6 +114,7 @@ class Walker {
   tryChange(i: number, ki: number, j: number, kj: number, moveLimit: number): boolean {
     const moves = this.moves + this.moveDelta(i, ki) + (j >= 0 ? this.moveDelta(j, kj) : 0);
     if (moves > moveLimit) return false;
+    if (this.touched) return this.tryChangeSparse(i, ki, j, kj, moves);
     const p = this.p;
     const c = p.contributions;
     const q2 = this.sums.length;
@@ -91,11 +127,74 @@ class Walker {
       const into2 = contributionOffset(p, j, kj);
       for (let x = 0; x < q2; x++) t[x]! += c[into2 + x]! - c[out2 + x]!;
     }
+    // Dense problems never take the sparse path, so `mags` may serve as scratch here.
     magnitudesOf(t, this.mags);
     const score = p.score(this.mags);
     const excess = limitExcess(p, this.mags);
     if (!this.beats(score, excess, moves)) return false;
     this.sums.set(t);
+    return this.accept(i, ki, j, kj, moves, score, excess);
+  }
+
+  /** The same, reading and writing only the quantities the two circuits reach. */
+  private tryChangeSparse(i: number, ki: number, j: number, kj: number, moves: number): boolean {
+    const p = this.p;
+    const li = this.touched![i]!;
+    this.startTrial(li);
+    if (j >= 0) this.startTrial(this.touched![j]!);
+    this.shift(i, this.choice[i]!, ki, li);
+    if (j >= 0) this.shift(j, this.choice[j]!, kj, this.touched![j]!);
+    this.trialMagnitudes(li);
+    if (j >= 0) this.trialMagnitudes(this.touched![j]!);
+    const score = p.score(this.trialMags);
+    const excess = limitExcess(p, this.trialMags);
+    const ok = this.beats(score, excess, moves);
+    this.endTrial(li, ok);
+    if (j >= 0) this.endTrial(this.touched![j]!, ok);
+    return ok && this.accept(i, ki, j, kj, moves, score, excess);
+  }
+
+  private startTrial(list: Int32Array): void {
+    for (let r = 0; r < list.length; r++) {
+      const x = 2 * list[r]!;
+      this.trial[x] = this.sums[x]!;
+      this.trial[x + 1] = this.sums[x + 1]!;
+    }
+  }
+
+  private shift(circuit: number, from: number, to: number, list: Int32Array): void {
+    const c = this.p.contributions;
+    const t = this.trial;
+    const out = contributionOffset(this.p, circuit, from);
+    const into = contributionOffset(this.p, circuit, to);
+    for (let r = 0; r < list.length; r++) {
+      const x = 2 * list[r]!;
+      t[x]! += c[into + x]! - c[out + x]!;
+      t[x + 1]! += c[into + x + 1]! - c[out + x + 1]!;
+    }
+  }
+
+  private trialMagnitudes(list: Int32Array): void {
+    const t = this.trial;
+    for (let r = 0; r < list.length; r++) {
+      const y = list[r]!;
+      this.trialMags[y] = Math.sqrt(t[2 * y]! * t[2 * y]! + t[2 * y + 1]! * t[2 * y + 1]!);
+    }
+  }
+
+  /** Keeps the trial's values (accepted) or puts the present ones back. */
+  private endTrial(list: Int32Array, keep: boolean): void {
+    for (let r = 0; r < list.length; r++) {
+      const y = list[r]!;
+      if (keep) {
+        this.sums[2 * y] = this.trial[2 * y]!;
+        this.sums[2 * y + 1] = this.trial[2 * y + 1]!;
+        this.mags[y] = this.trialMags[y]!;
+      } else this.trialMags[y] = this.mags[y]!;
+    }
+  }
+
+  private accept(i: number, ki: number, j: number, kj: number, moves: number, score: number, excess: number): true {
     this.choice[i] = ki;
     if (j >= 0) this.choice[j] = kj;
     this.moves = moves;

@@ -4,6 +4,7 @@
  * the voltage, the reactive part across it (lagging down), before and after
  * equipment is added, and the arrow of what the change did to the line current.
  */
+import { labelIn } from '../board/conventions/phaseNames.js';
 import type { BoardResult, PhaseReading } from '../analysis/boardResult.js';
 import { EQUIPMENT_COLOUR, GRID_COLOUR, INK, MUTED_INK, PHASE_COLOUR } from './palette.js';
 import { phasorScale } from './phasorScale.js';
@@ -47,6 +48,8 @@ const pfText = (r: LineCurrentParts): string => r.pf === null ? 'no current' : `
  */
 export function renderCurrentTriangles(before: BoardResult, after: BoardResult, options: CurrentTriangleOptions = {}): string {
   const { panelWidth, top, bottomText, widthBudget, heightBudget } = TRIANGLE_LAYOUT;
+  // Visible labels follow the board's phase names; data-phase attributes keep A/B/C.
+  const label = (phase: string) => labelIn(before.conventions.phaseNames, phase);
   const lines = before.phases.map((p, k) => ({ phase: p.phase, before: lineCurrentParts(p), after: lineCurrentParts(after.phases[k]!) }));
   const all = lines.flatMap((l) => [l.before, l.after]);
   const minA = Math.min(0, ...all.map((r) => r.activeA));
@@ -69,7 +72,7 @@ export function renderCurrentTriangles(before: BoardResult, after: BoardResult, 
     // Reference: the line's own voltage, to the right.
     const vEnd = 10 + (k + 1) * panelWidth - 14;
     parts.push(`<line${attrs({ x1: ox, y1: oy, x2: vEnd, y2: oy, stroke: GRID_COLOUR, 'stroke-width': 1 })}/>`);
-    parts.push(`<text${attrs({ x: vEnd - 22, y: oy - 6, 'font-size': 11, fill: MUTED_INK })}>${subscripted('V', before.conventions.phaseLabels[l.phase], '')}</text>`);
+    parts.push(`<text${attrs({ x: vEnd - 22, y: oy - 6, 'font-size': 11, fill: MUTED_INK })}>${subscripted('V', label(l.phase), '')}</text>`);
     // The before triangle's legs.
     parts.push(`<polyline${attrs({ points: `${ox},${oy} ${b.x},${oy} ${b.x},${b.y}`, fill: 'none', stroke: colour, 'stroke-width': 1, 'stroke-dasharray': '2 3', opacity: 0.7 })}/>`);
     parts.push(arrow(o, b, { colour, width: 2.6, dashed: true, opacity: 0.65 }, { quantity: 'current', phase: l.phase, state: 'before', magnitude: sig3(l.before.magnitudeA) }));
@@ -79,7 +82,7 @@ export function renderCurrentTriangles(before: BoardResult, after: BoardResult, 
     const ty = oy + down * pxPerA + 26;
     const text = (dy: number, content: string, weight = 'normal', fill = INK) =>
       parts.push(`<text${attrs({ x: tx, y: ty + dy, 'font-size': 11, fill, 'font-weight': weight })}>${content}</text>`);
-    text(0, escapeXml(`line ${before.conventions.phaseLabels[l.phase]}`), 'bold', colour);
+    text(0, escapeXml(`line ${label(l.phase)}`), 'bold', colour);
     text(15, escapeXml(`before ${sig3(l.before.magnitudeA)} A · ${pfText(l.before)}`), 'normal', MUTED_INK);
     text(30, escapeXml(`after ${sig3(l.after.magnitudeA)} A · ${pfText(l.after)}`), 'bold');
     text(45, escapeXml(`active ${sig3(l.before.activeA)} → ${sig3(l.after.activeA)} A`), 'normal', MUTED_INK);

@@ -4,6 +4,7 @@
  * labelled scale; optionally a second result (after correction) drawn solid
  * over the first drawn dashed.
  */
+import { labelIn } from '../board/conventions/phaseNames.js';
 import type { BoardResult } from '../analysis/boardResult.js';
 import type { Phasor } from '../complex.js';
 import { GRID_COLOUR, INK, MUTED_INK, NEUTRAL_COLOUR, PHASE_COLOUR } from './palette.js';
@@ -39,8 +40,8 @@ interface Drawn {
 
 function collect(result: BoardResult, state: Drawn['state'], withValues: boolean, withVoltageLabels: boolean): Drawn[] {
   const out: Drawn[] = [];
-  // The board's own naming (A/B/C or L1/L2/L3); data-phase attributes keep the A/B/C ids.
-  const label = result.conventions.phaseLabels;
+  // Labels follow the board's phase names (L1/L2/L3 or A/B/C); data-phase attributes keep A/B/C.
+  const label = (phase: string) => labelIn(result.conventions.phaseNames, phase);
   for (const p of result.phases) {
     out.push({
       kind: 'voltage',
@@ -48,7 +49,7 @@ function collect(result: BoardResult, state: Drawn['state'], withValues: boolean
       state,
       phasor: p.voltage,
       colour: PHASE_COLOUR[p.phase],
-      label: withVoltageLabels ? { main: 'V', sub: label[p.phase], rest: withValues ? ` ${sig3(p.voltage.magnitude)} V` : '' } : null,
+      label: withVoltageLabels ? { main: 'V', sub: label(p.phase), rest: withValues ? ` ${sig3(p.voltage.magnitude)} V` : '' } : null,
     });
   }
   for (const p of result.phases) {
@@ -58,7 +59,7 @@ function collect(result: BoardResult, state: Drawn['state'], withValues: boolean
       state,
       phasor: p.current,
       colour: PHASE_COLOUR[p.phase],
-      label: { main: 'I', sub: label[p.phase], rest: withValues ? ` ${sig3(p.current.magnitude)} A` : '' },
+      label: { main: 'I', sub: label(p.phase), rest: withValues ? ` ${sig3(p.current.magnitude)} A` : '' },
     });
   }
   if (result.neutral && !result.board.neutralOpen) {
@@ -175,7 +176,7 @@ export function renderPhasorDiagram(result: BoardResult, options: PhasorDiagramO
     `<title>${escapeXml(`${title}: ${result.board.name}`)}</title>` +
     `<rect${attrs({ x: 0, y: 0, width, height, fill: '#FFFFFF' })}/>` +
     `<text${attrs({ x: 16, y: 22, 'font-size': 15, 'font-weight': 'bold', fill: INK })}>${escapeXml(title)}</text>` +
-    `<text${attrs({ x: 16, y: 40, 'font-size': 11, fill: MUTED_INK })}>${escapeXml(`${name} · 0° = phase-${result.conventions.phaseLabels.A} source voltage, anticlockwise`)}</text>` +
+    `<text${attrs({ x: 16, y: 40, 'font-size': 11, fill: MUTED_INK })}>${escapeXml(`${name} · 0° = phase-${labelIn(result.conventions.phaseNames, 'A')} source voltage, anticlockwise`)}</text>` +
     g.svg +
     arrows.join('') +
     labels.join('') +

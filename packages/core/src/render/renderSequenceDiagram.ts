@@ -4,6 +4,7 @@
  * negative-sequence panel drawn on one scale per row, so the size of the
  * unbalance can be read against the positive sequence at a glance.
  */
+import { labelIn } from '../board/conventions/phaseNames.js';
 import type { BoardResult } from '../analysis/boardResult.js';
 import type { PhaseId } from '../board/boardModel.js';
 import type { Phasor } from '../complex.js';
@@ -35,7 +36,7 @@ export function sequencePhasors(componentA: Phasor, component: Component, sequen
   return { A: rot(0), B: rot(step), C: rot(2 * step) };
 }
 
-function row(set: SequenceSet<Phasor>, unit: 'V' | 'A', y0: number, sequence: 'ABC' | 'ACB', quantity: string): string {
+function row(set: SequenceSet<Phasor>, unit: 'V' | 'A', y0: number, sequence: 'ABC' | 'ACB', quantity: string, names: Readonly<Record<PhaseId, string>>): string {
   const { width, panelRadius } = SEQUENCE_LAYOUT;
   const largest = Math.max(...COMPONENTS.map((c) => set[c].magnitude));
   const scale: PhasorScale = phasorScale(largest, panelRadius, unit);
@@ -52,6 +53,7 @@ function row(set: SequenceSet<Phasor>, unit: 'V' | 'A', y0: number, sequence: 'A
     const tips: Point[] = [];
     const requests: LabelRequest[] = [];
     const phases: PhaseId[] = ['A', 'B', 'C'];
+  const allThree = `${names.A}=${names.B}=${names.C}`;
     for (const p of phases) {
       const ph = phasors[p];
       const tip = { x: cx + ph.re * scale.pxPerUnit, y: cy - ph.im * scale.pxPerUnit };
@@ -61,12 +63,12 @@ function row(set: SequenceSet<Phasor>, unit: 'V' | 'A', y0: number, sequence: 'A
       parts.push(
         arrow(centre, tip, { colour: c === 'zero' ? INK : PHASE_COLOUR[p], width: 2.4 }, { quantity: unit === 'V' ? 'voltage' : 'current', component: c, phase: p, magnitude: sig3(set[c].magnitude) }),
       );
-      requests.push({ tip, from: centre, ...textBox(c === 'zero' ? 'A=B=C' : p, 11) });
+      requests.push({ tip, from: centre, ...textBox(c === 'zero' ? allThree : names[p], 11) });
     }
     const obstacles = tips.map((t) => [centre, t] as const);
     const placed = placeLabels(requests, obstacles, { x: cx - width / 6 + 4, y: y0 + 38, w: width / 3 - 8, h: 2 * panelRadius + 16 });
     placed.forEach((pl, j) => {
-      const text = c === 'zero' ? 'A=B=C' : (['A', 'B', 'C'] as const)[j]!;
+      const text = c === 'zero' ? allThree : names[(['A', 'B', 'C'] as const)[j]!];
       const colour = c === 'zero' ? INK : PHASE_COLOUR[(['A', 'B', 'C'] as const)[j]!];
       parts.push(`<text${attrs({ class: 'phasor-label', x: pl.textAt.x, y: pl.textAt.y, 'font-size': 11, fill: colour })}>${escapeXml(text)}</text>`);
     });
@@ -96,9 +98,9 @@ export function renderSequenceDiagram(result: BoardResult, options: SequenceDiag
     `<title>${escapeXml(`${title}: ${result.board.name}`)}</title>` +
     `<rect${attrs({ x: 0, y: 0, width, height, fill: '#FFFFFF' })}/>` +
     `<text${attrs({ x: 16, y: 22, 'font-size': 15, 'font-weight': 'bold', fill: INK })}>${escapeXml(title)}</text>` +
-    `<text${attrs({ x: 16, y: 40, 'font-size': 11, fill: MUTED_INK })}>${escapeXml(`${result.board.name} · phase-${result.conventions.phaseLabels.A} components, sequence ${result.board.sequence}; each row on one scale`)}</text>` +
-    row(result.sequences.voltage, 'V', top, result.board.sequence, 'Voltages') +
-    row(result.sequences.current, 'A', top + rowHeight, result.board.sequence, 'Line currents') +
+    `<text${attrs({ x: 16, y: 40, 'font-size': 11, fill: MUTED_INK })}>${escapeXml(`${result.board.name} · phase-${result.conventions.phaseLabels.A} components, sequence ${labelIn(result.conventions.phaseNames, result.board.sequence)}; each row on one scale`)}</text>` +
+    row(result.sequences.voltage, 'V', top, result.board.sequence, 'Voltages', result.conventions.phaseLabels) +
+    row(result.sequences.current, 'A', top + rowHeight, result.board.sequence, 'Line currents', result.conventions.phaseLabels) +
     `</svg>\n`
   );
 }

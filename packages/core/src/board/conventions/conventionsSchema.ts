@@ -29,7 +29,7 @@ export const conventionsSchema = z
     phaseNames: z
       .enum(PHASE_NAMINGS)
       .optional()
-      .describe('how reports label the phases; default the naming the file uses, else A/B/C in North America and L1/L2/L3 elsewhere'),
+      .describe('how reports label the phases (the file may be written in either naming); default the naming the file uses, else A/B/C in North America and L1/L2/L3 elsewhere'),
     voltageLimits: voltageLimitsSchema.optional(),
   })
   .describe('the trade conventions the reports follow');

@@ -147,11 +147,9 @@ export function readTradeSpellings(input: unknown): SpellingReading {
       return b;
     });
   spellStudies(s, root);
+  // A set phaseNames only chooses the report's labels (a validated spec, already in A/B/C, keeps
+  // the naming its file used there and must validate again as it is).
   const declared = isObj(root.conventions) ? root.conventions.phaseNames : undefined;
-  if (s.first && typeof declared === 'string' && declared !== s.first.naming)
-    s.issues.push(
-      inputIssue('mixed_phase_names', 'conventions.phaseNames', `the naming the file uses (${s.first.naming}, first at ${s.first.path}), or leave phaseNames out`, declared),
-    );
   if (s.first && declared === undefined && (root.conventions === undefined || isObj(root.conventions)))
     root.conventions = { ...(root.conventions as Obj | undefined), phaseNames: s.first.naming };
   return { input: root, spellings: { naming: s.first?.naming ?? null, notation: notation.value }, issues: s.issues };

@@ -51,5 +51,9 @@ export function withTradeSpellings(schema: Json): Json {
   }
   const supply = at(schema, ['supply']);
   if (supply && Array.isArray(supply.required)) supply.required = supply.required.filter((k) => k !== 'system');
+  // `written` is how a validated spec remembers its notation; a file writes the notation itself.
+  const voltage = at(schema, ['supply', 'voltage']);
+  for (const form of Array.isArray(voltage?.anyOf) ? voltage.anyOf : [])
+    if (isObj(form) && isObj(form.properties)) delete form.properties.written;
   return schema;
 }

@@ -1,19 +1,21 @@
 /** Report sections about the board itself: description, panel schedule, solved results, lost neutral. */
-import type { BoardBaseSpec, ImpedanceSpec } from '../../board/boardSchema.js';
+import type { BoardBaseSpec, ImpedanceSpec, SystemKind } from '../../board/boardSchema.js';
+import { regionWords } from '../../board/conventions/regionWords.js';
 import { describeConductor, isPerPhaseLine } from '../../board/feederModel.js';
 
 /** A source impedance as entered: one for all phases, or one per phase. */
-function impedanceWords(z: NonNullable<BoardBaseSpec['supply']['impedance']>): string {
+function impedanceWords(z: NonNullable<BoardBaseSpec['supply']['impedance']>, naming: PhaseNaming): string {
   if ('r' in z) return `${z.r} + j${z.x} Ω`;
   return (['A', 'B', 'C'] as const)
     .filter((p) => z[p])
-    .map((p) => `${p} ${(z[p] as ImpedanceSpec).r} + j${(z[p] as ImpedanceSpec).x} Ω`)
+    .map((p) => `${labelIn(naming, p)} ${(z[p] as ImpedanceSpec).r} + j${(z[p] as ImpedanceSpec).x} Ω`)
     .join(', ');
 }
 import type { BoardResult, LoadReading } from '../../analysis/boardResult.js';
 import { fixed } from '../svgText.js';
+import { WARNING_THRESHOLDS } from '../../analysis/boardWarnings.js';
+import { labelIn, type PhaseNaming } from '../../board/conventions/phaseNames.js';
 import { bandWords, judgeVoltage } from '../../board/conventions/voltageLimits.js';
-import { labelIn } from '../../board/conventions/phaseNames.js';
 import { renderPhasorDiagram } from '../renderPhasorDiagram.js';
 import { renderSequenceDiagram } from '../renderSequenceDiagram.js';
 import type { ReportBlock, ReportSection } from './reportDocument.js';
@@ -28,9 +30,9 @@ const SYSTEM_WORDS: Readonly<Record<string, string>> = {
 const pfWords = (pf: number | null, sense: string): string => (pf === null ? '—' : `${fixed(pf, 3)}${sense === 'unity' ? '' : sense === 'lagging' ? ' lag' : ' lead'}`);
 const orDash = (x: number | null | undefined, digits: number): string => (x === null || x === undefined ? '—' : fixed(x, digits));
 
-export function conductorWords(line: NonNullable<BoardBaseSpec['feeder']>['line'], feeder?: BoardBaseSpec['feeder']): string {
+export function conductorWords(line: NonNullable<BoardBaseSpec['feeder']>['line'], feeder?: BoardBaseSpec['feeder'], naming: PhaseNaming = 'A/B/C'): string {
   if (!line) return 'none entered (zero impedance)';
-  if (isPerPhaseLine(line)) return (['A', 'B', 'C'] as const).filter((p) => line[p]).map((p) => `${p}: ${conductorWords(line[p], feeder)}`).join('; ');
+  if (isPerPhaseLine(line)) return (['A', 'B', 'C'] as const).filter((p) => line[p]).map((p) => `${labelIn(naming, p)}: ${conductorWords(line[p], feeder)}`).join('; ');
   const c = line;
   const library = describeConductor(c, feeder);
   if (library) return `${library}${c.ratingA !== undefined ? `, rated ${c.ratingA} A` : ''}`;
@@ -42,11 +44,11 @@ export function conductorWords(line: NonNullable<BoardBaseSpec['feeder']>['line'
 }
 
 /** The supply in words: transformer, source impedance, bank or ideal; zero-sequence data when entered. */
-export function sourceWords(s: BoardBaseSpec['supply']): string {
+export function sourceWords(s: BoardBaseSpec['supply'], naming: PhaseNaming = 'A/B/C'): string {
   const base = s.transformer
-    ? `transformer ${s.transformer.kVA} kVA, impedance ${s.transformer.impedancePercent} %, X/R ${s.transformer.xOverR}${s.impedance ? `, plus ${impedanceWords(s.impedance)}` : ''}`
+    ? `transformer ${s.transformer.kVA} kVA, impedance ${s.transformer.impedancePercent} %, X/R ${s.transformer.xOverR}${s.impedance ? `, plus ${impedanceWords(s.impedance, naming)}` : ''}`
     : s.impedance
-      ? `${impedanceWords(s.impedance)}${'r' in s.impedance ? ' per phase' : ''}`
+      ? `${impedanceWords(s.impedance, naming)}${'r' in s.impedance ? ' per phase' : ''}`
       : s.bank
         ? 'a bank of single-phase units, one per phase'
         : s.openDelta
@@ -71,9 +73,9 @@ export function installationSection(spec: BoardBaseSpec, result: BoardResult): R
   const items: [string, string][] = [
     ['Board', b.name],
     ...systemFacts(result),
-    ['Source', sourceWords(s)],
+    ['Source', sourceWords(s, result.conventions.phaseNames)],
     ['Source voltages', s.emf ? 'unbalanced, as entered per phase' : 'balanced at nominal voltage'],
-    ['Feeder, each line', conductorWords(spec.feeder?.line, spec.feeder)],
+    ['Feeder, each line', conductorWords(spec.feeder?.line, spec.feeder, result.conventions.phaseNames)],
   ];
   if (result.neutral !== null) items.push(['Feeder, neutral', conductorWords(spec.feeder?.neutral, spec.feeder)]);
   if (b.neutralOpen) items.push(['Neutral', 'entered as broken (what-if)']);
@@ -130,36 +132,57 @@ export function scheduleSection(spec: BoardBaseSpec, result: BoardResult): Repor
   return { id: 'schedule', title: 'Panel schedule', blocks: [scheduleTable(spec.loads, result)] };
 }
 
-/**
- * Every phase and line-to-line voltage of the board against the limits it is judged by (its
- * `voltageCheck.limits`: the file's preset or its region's): the limits in volts, the margin and a
- * verdict judged as the warnings judge it, on the printed figure.
- */
-export function voltageLimitsTable(result: BoardResult): ReportBlock {
+/** The voltage band the report judges against, % of nominal either side. */
+export interface VoltageBand {
+  readonly lowPercent: number;
+  readonly highPercent: number;
+  /** Where the band comes from, for the table's note. */
+  readonly source: string;
+}
+
+/** The band of the board's own voltage limits (`conventions.voltageLimits`), which its warnings and verdict use. */
+export function bandOf(result: BoardResult): VoltageBand {
+  const l = result.voltageCheck.limits;
+  return { lowPercent: -l.underPercent, highPercent: l.overPercent, source: `${bandWords(l)} of nominal (${l.preset}): ${l.source}` };
+}
+
+/** The EN 50160 low-voltage supply band (±10 %), the IEC default. */
+export const DEFAULT_VOLTAGE_BAND: VoltageBand = {
+  lowPercent: -WARNING_THRESHOLDS.voltageBandPercent,
+  highPercent: WARNING_THRESHOLDS.voltageBandPercent,
+  source: `±${WARNING_THRESHOLDS.voltageBandPercent} % of nominal, the EN 50160 low-voltage supply band trivar's warnings use`,
+};
+
+/** Every phase and line-to-line voltage of the board against the band: its limits in volts, the margin and a verdict. */
+export function voltageLimitsTable(result: BoardResult, band: VoltageBand = bandOf(result)): ReportBlock {
   const b = result.board;
-  const limits = result.voltageCheck.limits;
-  const label = (term: string) => labelIn(result.conventions.phaseNames, term);
+  const label = (t: string) => labelIn(result.conventions.phaseNames, t);
+  const limits = { preset: 'custom' as const, underPercent: -band.lowPercent, overPercent: band.highPercent, source: band.source };
   const row = (name: string, v: number, percent: number, nominal: number): string[] => {
-    const margin = Math.min(percent - (100 - limits.underPercent), 100 + limits.overPercent - percent);
-    const verdict = judgeVoltage(limits, percent);
+    const margin = Math.min(percent - (100 + band.lowPercent), 100 + band.highPercent - percent);
+    // Judged as printed, like the warnings and the verdict (see voltageLimits.ts).
+    const low = judgeVoltage(limits, percent) === 'under';
+    const high = judgeVoltage(limits, percent) === 'over';
     return [
       name,
       fixed(v, 1),
       fixed(percent, 1),
-      `${fixed((nominal * (100 - limits.underPercent)) / 100, 1)} – ${fixed((nominal * (100 + limits.overPercent)) / 100, 1)}`,
+      `${fixed((nominal * (100 + band.lowPercent)) / 100, 1)} – ${fixed((nominal * (100 + band.highPercent)) / 100, 1)}`,
       fixed(margin, 1),
-      verdict === 'under' ? 'below the limits' : verdict === 'over' ? 'above the limits' : 'within',
+      low ? 'below the band' : high ? 'above the band' : 'within',
     ];
   };
-  const rows = result.phases.map((p) => row(`${label(p.phase)}-N`, p.voltage.magnitude, p.voltagePercent, b.nominalLineToNeutralV));
-  if (b.nominalLineToLineV !== null && result.phases.length > 2)
+  // The voltages the board's verdict judges (voltageCheck.ts): phase voltages only where a neutral gives them meaning.
+  const judged = result.neutral !== null || result.lineToLine.length === 0 ? result.phases : [];
+  const rows = judged.map((p) => row(label(`${p.phase}-N`), p.voltage.magnitude, p.voltagePercent, b.nominalLineToNeutralV));
+  if (b.nominalLineToLineV !== null && result.phases.length > 1)
     for (const l of result.lineToLine) rows.push(row(label(l.pair), l.voltage.magnitude, l.voltagePercent, b.nominalLineToLineV));
   return {
     kind: 'table',
-    caption: `Voltages against the limits (${bandWords(limits)})`,
+    caption: 'Voltages against the limits',
     columns: [{ label: 'Voltage' }, { label: 'V', align: 'right' }, { label: '%nom', align: 'right' }, { label: 'Allowed V', align: 'right' }, { label: 'Margin %', align: 'right' }, { label: 'Verdict' }],
     rows,
-    note: `Limits: ${limits.source}. Margin: distance to the nearer limit, % of nominal (negative outside).${result.neutral ? '' : ' Phase voltages to the centroid of the line voltages (no neutral).'}`,
+    note: `Band: ${band.source}. Margin: distance to the nearer limit, % of nominal (negative outside the band).${result.neutral ? '' : ' Phase voltages to the centroid of the line voltages (no neutral).'}`,
   };
 }
 
@@ -168,15 +191,17 @@ export interface ResultBlockOptions {
   readonly figurePrefix?: string;
   /** Draw the symmetrical components too (three-phase boards). @defaultValue true */
   readonly sequenceFigure?: boolean;
+  /** The band voltages are judged against. @defaultValue `DEFAULT_VOLTAGE_BAND` */
+  readonly band?: VoltageBand;
 }
 
 /** The solved figures of a board as report blocks: the V/I table, the limits, the phasors, power factors and unbalance, warnings. */
 export function resultBlocks(result: BoardResult, options: ResultBlockOptions = {}): ReportBlock[] {
   const prefix = options.figurePrefix ?? '';
   const blocks: ReportBlock[] = [];
-  const label = result.conventions.phaseLabels;
+  const label = (t: string) => labelIn(result.conventions.phaseNames, t);
   const rows = result.phases.map((p) => [
-    label[p.phase],
+    label(p.phase),
     fixed(p.voltage.magnitude, 1),
     fixed(p.voltage.angleDeg, 1),
     fixed(p.voltagePercent, 1),
@@ -207,9 +232,9 @@ export function resultBlocks(result: BoardResult, options: ResultBlockOptions = 
       { label: '% rating', align: 'right' },
     ],
     rows,
-    note: `${result.neutral ? 'Phase voltages to the neutral bar; the N row gives the neutral bar voltage to the source star point and the neutral current.' : 'Phase voltages to the centroid of the line voltages (no neutral).'} Line-to-line: ${result.lineToLine.map((l) => `${labelIn(result.conventions.phaseNames, l.pair)} ${fixed(l.voltage.magnitude, 1)} V`).join(', ')}.`,
+    note: `${result.neutral ? `Phase voltages to the neutral bar; the N row gives the neutral bar voltage to ${regionWords(result.conventions.region, result.board.system as SystemKind).sourceNeutralPoint} and the neutral current.` : 'Phase voltages to the centroid of the line voltages (no neutral).'} Line-to-line: ${result.lineToLine.map((l) => `${label(l.pair)} ${fixed(l.voltage.magnitude, 1)} V`).join(', ')}.`,
   });
-  blocks.push(voltageLimitsTable(result));
+  blocks.push(voltageLimitsTable(result, options.band));
   blocks.push({ kind: 'figure', name: `${prefix}phasors`, caption: `Phasor diagram of ${result.board.name} as solved`, svg: renderPhasorDiagram(result) });
   const pf = result.powerFactor;
   const facts: [string, string][] = [
@@ -254,7 +279,7 @@ export function openNeutralSection(result: BoardResult): ReportSection | null {
         kind: 'table',
         caption: 'Voltage each line-to-neutral circuit would see',
         columns: [{ label: 'Circuit' }, { label: 'Phase' }, { label: 'V', align: 'right' }, { label: '%nom', align: 'right' }, { label: 'Verdict' }],
-        rows: on.loads.map((l) => [l.name, l.phase, fixed(l.voltage, 1), fixed(l.voltagePercent, 1), l.flag === 'over' ? 'overvoltage' : l.flag === 'under' ? 'undervoltage' : 'within limits']),
+        rows: on.loads.map((l) => [l.name, labelIn(result.conventions.phaseNames, l.phase), fixed(l.voltage, 1), fixed(l.voltagePercent, 1), l.flag === 'over' ? 'overvoltage' : l.flag === 'under' ? 'undervoltage' : 'within limits']),
       },
       { kind: 'list', tone: 'caution', items: on.cautions },
     ],

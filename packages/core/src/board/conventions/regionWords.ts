@@ -1,0 +1,42 @@
+/**
+ * The words a report uses for the things regions name differently. IEC practice
+ * (IEC 60364 wording): the source star point, PEN conductors and TN-C-S earthing.
+ * North-American practice (NEC wording): the grounded conductor (neutral), the
+ * transformer's centre tap on a split-phase (120/240 V) service, the wye point of a
+ * star, grounding and bonding. Every region-specific sentence of a board report is here.
+ */
+import type { SystemKind } from '../boardSchema.js';
+import type { Region } from './region.js';
+
+export interface RegionWords {
+  /** The point the source's phase voltages are measured from: "the source star point", "the transformer centre tap". */
+  readonly sourceNeutralPoint: string;
+  /** The neutral conductor, first mention: "neutral", "grounded conductor (neutral)". */
+  readonly neutralConductor: string;
+  /** What the phases of the board are called in a sentence: "phases", or the "legs" of a split-phase service. */
+  readonly phasesWord: string;
+  /** Cautions shown with a broken-neutral study. */
+  readonly openNeutralCautions: readonly string[];
+}
+
+const IEC_OPEN_NEUTRAL_CAUTIONS: readonly string[] = [
+  'A broken neutral is a hazardous condition: line-to-neutral equipment on the lightly loaded phases can see up to the line-to-line voltage and be destroyed, and in TN-C-S installations exposed metalwork can become live.',
+  'Never switch, fuse or disconnect the neutral (PEN) on its own; inspect neutral terminations and bonding regularly.',
+];
+
+const northAmericanCautions = (legs: string): readonly string[] => [
+  `A lost neutral is a hazardous condition: line-to-neutral equipment on the lightly loaded ${legs} can see up to the line-to-line voltage and be destroyed, and the neutral current can return through the grounding and bonding (water piping, cable sheaths, metal enclosures).`,
+  'Never switch, fuse or open the grounded conductor (neutral) on its own (NEC 240.22, from memory); inspect neutral terminations at the service, the meter base and the transformer regularly.',
+];
+
+export function regionWords(region: Region, system: SystemKind): RegionWords {
+  const split = system === 'split-phase';
+  if (region === 'north-america')
+    return {
+      sourceNeutralPoint: split ? 'the transformer centre tap' : 'the source wye point',
+      neutralConductor: 'grounded conductor (neutral)',
+      phasesWord: split ? 'leg' : 'phases',
+      openNeutralCautions: northAmericanCautions(split ? 'leg' : 'phases'),
+    };
+  return { sourceNeutralPoint: 'the source star point', neutralConductor: 'neutral', phasesWord: 'phases', openNeutralCautions: IEC_OPEN_NEUTRAL_CAUTIONS };
+}

@@ -1,0 +1,50 @@
+/**
+ * Wording follows the board's region: a North-American split-phase (120/240 V) report
+ * speaks of the centre tap and the grounded conductor (neutral) and never of PEN, TN-C-S
+ * or a star point; an IEC board keeps the IEC words; the region can be set in the file.
+ */
+import { readFileSync } from 'node:fs';
+import { describe, expect, it } from 'vitest';
+import { readBoardText, solveBoard } from '@trivar/core';
+import { renderSolveReport } from '../../packages/cli/src/format/solveReport.js';
+
+const ROOT = new URL('../../', import.meta.url);
+const example = (name: string) => readBoardText(readFileSync(new URL(`examples/${name}`, ROOT), 'utf8')) as Record<string, unknown>;
+const IEC_TERMS = /\bPEN\b|TN-C-S|TN-S|star point|\bearth(ed|ing)?\b/;
+const NORTH_AMERICAN_TERMS = /centre tap|grounded conductor|wye point|\bgrounding\b/;
+
+describe('region wording', () => {
+  it('a 120/240 V split-phase report (with the broken-neutral study) has no IEC terms', () => {
+    const r = solveBoard(example('pine-hollow-cabin.yaml'));
+    expect(r.conventions).toMatchObject({ region: 'north-america', regionBasis: 'notation', phaseNames: 'A/B/C' });
+    const text = renderSolveReport(r);
+    expect(text).not.toMatch(IEC_TERMS);
+    expect(text).toMatch(/centre tap/);
+    expect(text).toMatch(/grounded conductor \(neutral\)/);
+    expect(r.openNeutral?.cautions.join(' ')).not.toMatch(IEC_TERMS);
+  });
+
+  it('an IEC board keeps PEN and TN-C-S and never speaks of a centre tap or grounded conductor', () => {
+    const text = renderSolveReport(solveBoard(example('corner-bakery.yaml')));
+    expect(text).toMatch(/TN-C-S/);
+    expect(text).toMatch(/\(PEN\)/);
+    expect(text).not.toMatch(NORTH_AMERICAN_TERMS);
+  });
+
+  it('the file can override the inferred region', () => {
+    const bakery = { ...example('corner-bakery.yaml'), conventions: { region: 'north-america' } };
+    const r = solveBoard(bakery);
+    expect(r.conventions).toMatchObject({ region: 'north-america', regionBasis: 'file' });
+    const text = renderSolveReport(r);
+    expect(text).not.toMatch(IEC_TERMS);
+    expect(text).toMatch(/wye point/);
+  });
+
+  it('states the pf taken for a resistive load given by kW alone (default 1), in the report and the result', () => {
+    const r = solveBoard(example('pine-hollow-cabin.yaml'));
+    const heater = r.loads.find((l) => l.name === 'Space heaters')!;
+    expect(heater.pfAssumed).toBe(true);
+    expect(heater.pf).toBe(1);
+    expect(renderSolveReport(r)).toMatch(/\*: pf not given in the file, taken as 1 \(a resistive load\)/);
+  });
+});

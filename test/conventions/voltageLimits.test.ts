@@ -1,0 +1,88 @@
+/**
+ * Voltage limits: named presets and custom percentages, applied to every board of an
+ * installation; the verdict, the warnings and the printed figures agree. Preset values:
+ * METHODS.md §12 (EN 50160 ±10 % confirmed secondary; ANSI C84.1 Range A ±5 % at service
+ * confirmed secondary, Range B from memory; UK +10/−6 % confirmed from the 1994 amendment).
+ */
+import { readFileSync } from 'node:fs';
+import { describe, expect, it } from 'vitest';
+import { judgeVoltage, readBoardText, solveBoard, solveInstallation, VOLTAGE_LIMIT_PRESETS, type InstallationResult } from '@trivar/core';
+import { renderInstallationReport } from '../../packages/cli/src/format/installationReport.js';
+import { renderSolveReport } from '../../packages/cli/src/format/solveReport.js';
+
+const ROOT = new URL('../../', import.meta.url);
+const riserText = readFileSync(new URL('examples/maple-court-riser.yaml', ROOT), 'utf8');
+const riser = (voltageLimits?: unknown) => {
+  const spec = readBoardText(riserText) as Record<string, unknown>;
+  return solveInstallation(voltageLimits === undefined ? spec : { ...spec, conventions: { voltageLimits } });
+};
+const lowest = (r: InstallationResult, board: string) => Math.min(...r.boards.find((b) => b.name === board)!.result.phases.map((p) => p.voltagePercent));
+
+describe('voltage-limit presets', () => {
+  it('hold the values of METHODS.md §12', () => {
+    expect(VOLTAGE_LIMIT_PRESETS['en50160-supply']).toMatchObject({ underPercent: 10, overPercent: 10 });
+    expect(VOLTAGE_LIMIT_PRESETS['c84-service-a']).toMatchObject({ underPercent: 5, overPercent: 5 });
+    expect(VOLTAGE_LIMIT_PRESETS['c84-service-b']).toMatchObject({ underPercent: 8.3, overPercent: 5.8 });
+    expect(VOLTAGE_LIMIT_PRESETS['uk-supply']).toMatchObject({ underPercent: 6, overPercent: 10 });
+    // 120 V service: Range A 114–126 V, Range B 110–127 V (ANSI C84.1, from memory).
+    const a = { preset: 'c84-service-a' as const, ...VOLTAGE_LIMIT_PRESETS['c84-service-a'] };
+    expect(judgeVoltage(a, (100 * 114) / 120)).toBe('within');
+    expect(judgeVoltage(a, (100 * 113.8) / 120)).toBe('under');
+    const b = { preset: 'c84-service-b' as const, ...VOLTAGE_LIMIT_PRESETS['c84-service-b'] };
+    expect(judgeVoltage(b, (100 * 110) / 120)).toBe('within');
+    expect(judgeVoltage(b, (100 * 127) / 120)).toBe('within');
+    expect(judgeVoltage(b, (100 * 127.5) / 120)).toBe('over');
+  });
+
+  it('judges a figure as printed (0.1 %), so the verdict never contradicts the number shown', () => {
+    const custom = { preset: 'custom' as const, underPercent: 3, overPercent: 3, source: '' };
+    expect(judgeVoltage(custom, 96.96)).toBe('within'); // printed 97.0
+    expect(judgeVoltage(custom, 96.94)).toBe('under'); // printed 96.9
+  });
+});
+
+describe('limits on every board of the Maple Court riser', () => {
+  it('the farthest board is the lowest, and is within EN 50160 (the IEC default) and ANSI Range A', () => {
+    const r = riser();
+    expect(r.totals.lowestVoltageBoard).toBe('Floor 4');
+    expect(r.boards.every((b) => b.result.voltageCheck.limits.preset === 'en50160-supply')).toBe(true);
+    expect(r.boards.every((b) => b.result.voltageCheck.verdict === 'within')).toBe(true);
+    const a = riser('c84-service-a');
+    expect(a.boards.every((b) => b.result.voltageCheck.verdict === 'within')).toBe(true);
+  });
+
+  it('custom −3 % puts exactly the boards whose printed minimum is below 97.0 % under the limit, in the table, the line and the warnings', () => {
+    const r = riser({ underPercent: 3, overPercent: 5 });
+    const printed = (x: number) => Math.round(x * 10) / 10;
+    for (const b of r.boards) {
+      // Board voltages and every load's voltage on the board, as printed.
+      const all = [...b.result.phases.map((p) => p.voltagePercent), ...b.result.loads.flatMap((l) => l.branches.map((x) => x.voltagePercent))];
+      const expected = all.some((v) => printed(v) < 97) ? 'under' : 'within';
+      expect(b.result.voltageCheck.verdict, b.name).toBe(expected);
+      const warned = b.result.warnings.some((w) => w.code.endsWith('undervoltage'));
+      expect(warned, b.name).toBe(expected === 'under');
+    }
+    const under = r.boards.filter((b) => b.result.voltageCheck.verdict === 'under').map((b) => b.name);
+    expect(under).toContain('Floor 4');
+    expect(under).not.toContain('Main switchboard');
+    expect(printed(lowest(r, 'Floor 4'))).toBeLessThan(97);
+    const text = renderInstallationReport(r, { detailed: [] });
+    expect(text).toMatch(/Floor 4 .* UNDER /);
+    expect(text).toMatch(new RegExp(`voltage limits −3/\\+5 % \\(custom\\): outside at ${under.map((n) => `${n} \\(under\\)`).join(', ')}`));
+  });
+
+  it('the board report states the limits, their source and one verdict that agrees with its warnings', () => {
+    const board = solveBoard({
+      supply: { voltage: '208Y/120', frequencyHz: 60, impedance: { r: 0.2, x: 0.05 } },
+      loads: [{ name: 'heater', connection: 'A-N', kW: 4.5 }],
+    });
+    expect(board.conventions.voltageLimits.preset).toBe('c84-service-a');
+    expect(board.voltageCheck.verdict).toBe('under');
+    const text = renderSolveReport(board);
+    expect(text).toMatch(/limits ±5 % \(c84-service-a\): BELOW the lower limit; lowest (\d+\.\d) % at (phase A|"heater")/);
+    const shown = Number(/lowest (\d+\.\d) %/.exec(text)![1]);
+    expect(shown).toBeLessThan(95);
+    expect(text).toMatch(/ANSI C84\.1 Range A/);
+    expect(board.warnings.map((w) => w.code)).toContain('undervoltage');
+  });
+});
