@@ -1,21 +1,24 @@
 /**
- * Solver speed, each figure a ratio against a baseline measured in this same run
- * (never a timed unit test). Run: `npm run bench:solver` (bundles this file with
- * esbuild against core's source, see scripts/dev-run.mjs).
+ * Solver and CLI speed, each figure a ratio against a baseline measured in this same run
+ * (never a timed unit test). Run: `npm run bench:solver` (bundles this file with esbuild
+ * against core's source, see scripts/dev-run.mjs; the CLI parts run the built binary).
  *
  * 1. The one-board, three-load network: the solver as it was (bench/baseline), the
  *    public `solveNetwork` (compiles each call), and the compiled path (compile once,
  *    `network.solve()` many times). Goal: compiled ≥ 1e6 solves/s and ≥ 35× the old path.
  * 2. A board with 2,000 loads of which 400 are floating stars: old against new.
- * 3. CLI start-up: `trivar solve` on a 1,000-load board and `trivar correct` on the shipped
- *    examples against a bare `node -e ""`, interleaved. Goal: ≤ 3×.
+ * 3. A generated 20-board, 2,000-load installation (fixed seed). Goal: solves in < 50 ms.
+ * 4. CLI: `trivar solve` on a 1,000-load board (JSON, and the same board as YAML) and
+ *    `trivar correct` on the shipped examples against a bare `node -e ""`, interleaved.
+ *    Goal: ≤ 3× (median wall time).
  * Pass `--quick` for fewer runs.
  */
 import { spawnSync } from 'node:child_process';
 import { mkdtempSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { compileBoard, normaliseBoard, parseBoard, solveBoard, solveNetwork, type Board, type BoardSpec } from '../packages/core/src/index.js';
+import { compileBoard, compileInstallation, normaliseBoard, normaliseInstallation, parseBoard, parseInstallation, solveBoard, solveCompiledInstallation, solveInstallation, solveInstallationNetwork, solveNetwork, type Board, type BoardSpec } from '../packages/core/src/index.js';
+import { generatedInstallation } from './generatedInstallation.js';
 import { solveNetwork as solveNetworkBefore } from './baseline/solveNetworkBefore.js';
 
 const quick = process.argv.includes('--quick');
@@ -111,16 +114,41 @@ console.log('2. one board, 2,000 loads, 400 of them floating stars (ms per solve
   console.log(`     solveBoard (validate + solve + analyse)  ${full.toFixed(1)} ms`);
 }
 
+console.log('');
+console.log('3. a 20-board installation with 2,000 loads (generated, seed 20261202; ms per solve, median)');
+{
+  const spec = generatedInstallation(20261202, 20, 2000);
+  const installation = normaliseInstallation(parseInstallation(spec)).installation;
+  const runs = quick ? 5 : 15;
+  const single = normaliseBoard(parseBoard(manyLoadSpec(2000, 0)));
+  const singleMs = timeMs(() => solveNetwork(single), runs);
+  const network = timeMs(() => solveInstallationNetwork(installation), runs);
+  const compiled = compileInstallation(installation);
+  const resolve = timeMs(() => compiled.network.solve(), runs);
+  const resolveRead = timeMs(() => solveCompiledInstallation(compiled), runs);
+  const full = timeMs(() => solveInstallation(spec), runs);
+  console.log(`     (same-run reference: one board, 2,000 loads, solveNetwork ${singleMs.toFixed(2)} ms)`);
+  console.log(`     solveInstallationNetwork (compile + solve)  ${network.toFixed(2)} ms   ${(network / singleMs).toFixed(2)}x the one-board solve   (goal < 50 ms)`);
+  console.log(`     compiled network.solve()                    ${resolve.toFixed(2)} ms   (${compiled.network.unknownCount} unknowns, ${compiled.network.iterations} iterations)`);
+  console.log(`     solveCompiledInstallation (solve + read)    ${resolveRead.toFixed(2)} ms`);
+  console.log(`     solveInstallation (validate + solve + analyse every board)  ${full.toFixed(1)} ms`);
+}
 
 console.log('');
-console.log('3. CLI start-up against a bare `node -e ""` (median wall time, interleaved)');
+console.log('4. CLI against a bare `node -e ""` (median wall time, interleaved)');
 {
   const dir = mkdtempSync(join(tmpdir(), 'trivar-bench-'));
   const big = join(dir, 'thousand-loads.json');
   writeFileSync(big, JSON.stringify(manyLoadSpec(1000, 0)));
+  const bigYaml = join(dir, 'thousand-loads.yaml');
+  // The same board as a person writes YAML: one flow mapping per circuit line.
+  const flow = (v: unknown): string => (v !== null && typeof v === 'object' ? `{ ${Object.entries(v).map(([k, x]) => `${k}: ${flow(x)}`).join(', ')} }` : String(v));
+  const { loads, ...head } = manyLoadSpec(1000, 0);
+  writeFileSync(bigYaml, `${Object.entries(head).map(([k, v]) => `${k}: ${flow(v)}\n`).join('')}loads:\n${loads.map((l) => `  - ${flow(l)}\n`).join('')}`);
   const cli = 'packages/cli/bin/trivar.js';
   const cases: [string, string[]][] = [
-    ['trivar solve (1,000-load board)', [cli, 'solve', big]],
+    ['trivar solve (1,000-load board, JSON)', [cli, 'solve', big]],
+    ['trivar solve (1,000-load board, YAML)', [cli, 'solve', bigYaml]],
     ...['corner-bakery', 'harbour-cottages', 'hillside-workshop', 'riverside-cold-store'].map(
       (name): [string, string[]] => [`trivar correct ${name}`, [cli, 'correct', `examples/${name}.yaml`]],
     ),

@@ -42,6 +42,22 @@ describe('trivar correct on an installation file', () => {
     for (const line of r.stdout.split('\n')) expect(line.length, line).toBeLessThanOrEqual(100);
   });
 
+  it('says where loads leave or re-enter the voltage band', () => {
+    const text = [
+      'name: far barn',
+      'supply: { system: three-phase-4wire, voltage: { lineToLine: 400 }, frequencyHz: 50, transformer: { kVA: 100, impedancePercent: 4, xOverR: 3 } }',
+      'boards:',
+      '  - { name: Farmhouse, loads: [{ name: house, connection: A-N, kW: 3, pf: 0.98 }] }',
+      '  - name: Barn',
+      '    fedFrom: Farmhouse',
+      '    feeder: { lengthM: 360, line: { mm2: 25, ratingA: 100 }, neutral: { mm2: 25 } }',
+      '    loads: [{ name: mill motor, connection: ABC-delta, kW: 30, pf: 0.7 }, { name: lights, connection: B-N, kW: 1, pf: 0.95 }]',
+    ].join('\n');
+    const r = runTrivar(['correct', '-', '--board', 'Barn', '--arrangement', 'delta-bank', '--pf', '0.98'], text);
+    expect(r.code).toBe(0);
+    expect(r.stdout).toContain('! Barn: 1 → 0 load(s) outside the voltage band');
+  });
+
   it('an unknown board: exit 3, naming --board and every board of the installation', () => {
     const r = runTrivar(['correct', works, '--board', 'Paint shop']);
     expect(r.code).toBe(3);

@@ -1,6 +1,6 @@
 /** User text reaches the terminal with its control characters escaped; JSON keeps it exact. */
 import { describe, expect, it } from 'vitest';
-import { escapeControlCharacters } from '../../packages/cli/src/format/terminalText.js';
+import { escapeControlCharacters, forTerminal } from '../../packages/cli/src/format/terminalText.js';
 import { runTrivar } from './runTrivar.js';
 
 const hostileName = 'Oven\u001b[2J\u001b]0;owned\u0007\nWarnings\n  none\u0000\u009b31m\u202e';
@@ -31,6 +31,17 @@ describe('control characters in names', () => {
     expect(r.code).toBe(3);
     expect(r.stderr).not.toMatch(CONTROL);
     expect(r.stderr).toContain('\\e[2Jx');
+  });
+  it('forTerminal hands clean data back as it is and copies it with every kind of control character escaped', () => {
+    const clean = { name: 'C:\\new "quoted" Café', loads: [{ name: 'a\\tb', kW: 1 }], lone: '\ud800' };
+    expect(forTerminal(clean)).toBe(clean);
+    for (const c of ['\n', '\t', '\u0000', '\u001b', '\u007f', '\u0085', '\u2028', '\u202e', '\u2066']) {
+      const data = { loads: [{ name: `x${c}y`, kW: 1 }] };
+      const out = forTerminal(data);
+      expect(out).not.toBe(data);
+      expect(out.loads[0]!.name).toBe(escapeControlCharacters(`x${c}y`));
+      expect(out.loads[0]!.name).not.toMatch(CONTROL);
+    }
   });
   it('escapeControlCharacters leaves ordinary text, accents and units alone', () => {
     expect(escapeControlCharacters('Café ∠V° µF Ω — ok')).toBe('Café ∠V° µF Ω — ok');

@@ -2,15 +2,16 @@
 import { Command, CommanderError, InvalidArgumentError, Option } from 'commander';
 import { EXIT, exitCodeFor, messageFor } from './exitCodes.js';
 import { DEFAULT_MAX_INPUT_MB, type CliIo } from './io.js';
-import { runSolve } from './commands/solve.js';
-import { runSchema, type SchemaCommandOptions } from './commands/schema.js';
-import { outcomeMeetsTarget, runCorrect, type CorrectCommandOptions } from './commands/correct.js';
-import { runProfile, type ProfileCommandOptions } from './commands/profile.js';
-import { runHarmonics } from './commands/harmonics.js';
-import { runRebalance, type RebalanceCommandOptions } from './commands/rebalance.js';
-import { DIAGRAM_VIEWS, runDiagram, type DiagramCommandOptions } from './commands/diagram.js';
-import { runReport, type ReportCommandOptions } from './commands/report.js';
-import { runCheck, type CheckCommandOptions } from './commands/check.js';
+// Each command's module loads when that command runs (esbuild splits them into chunks), so
+// `trivar solve` never parses the correction, harmonic, profile or report code.
+import type { SchemaCommandOptions } from './commands/schema.js';
+import type { CorrectCommandOptions } from './commands/correct.js';
+import type { ProfileCommandOptions } from './commands/profile.js';
+import type { RebalanceCommandOptions } from './commands/rebalance.js';
+import type { DiagramCommandOptions } from './commands/diagram.js';
+import type { ReportCommandOptions } from './commands/report.js';
+import type { CheckCommandOptions } from './commands/check.js';
+import { DIAGRAM_VIEWS } from './commands/diagramViews.js';
 import packageJson from '../package.json' with { type: 'json' };
 
 export const VERSION: string = packageJson.version;
@@ -190,6 +191,7 @@ export function createProgram(io: CliIo, outcome: RunOutcome = { exitCode: EXIT.
     .addOption(maxInputOption())
     .addHelpText('after', SOLVE_EXAMPLES)
     .action(async (board: string, opts: { json?: boolean; openNeutral?: boolean; board?: string[]; allBoards?: boolean; maxInputMb?: number }) => {
+      const { runSolve } = await import('./commands/solve.js');
       await runSolve(board, opts, io);
     });
 
@@ -213,6 +215,7 @@ export function createProgram(io: CliIo, outcome: RunOutcome = { exitCode: EXIT.
     .addOption(maxInputOption())
     .addHelpText('after', CORRECT_EXAMPLES)
     .action(async (board: string, opts: CorrectCommandOptions) => {
+      const { outcomeMeetsTarget, runCorrect } = await import('./commands/correct.js');
       if (!outcomeMeetsTarget(await runCorrect(board, opts, io))) outcome.exitCode = EXIT.targetNotMet;
     });
 
@@ -234,6 +237,7 @@ export function createProgram(io: CliIo, outcome: RunOutcome = { exitCode: EXIT.
     .option('--json', 'print the full result as JSON instead of the report')
     .addHelpText('after', PROFILE_EXAMPLES)
     .action(async (board: string, opts: ProfileCommandOptions) => {
+      const { runProfile } = await import('./commands/profile.js');
       await runProfile(board, opts, io);
     });
 
@@ -244,6 +248,7 @@ export function createProgram(io: CliIo, outcome: RunOutcome = { exitCode: EXIT.
     .option('--json', 'print the full report (with the scan data) as JSON instead of the text report')
     .addHelpText('after', HARMONICS_EXAMPLES)
     .action(async (board: string, opts: { json?: boolean }) => {
+      const { runHarmonics } = await import('./commands/harmonics.js');
       await runHarmonics(board, opts, io);
     });
 
@@ -268,6 +273,7 @@ export function createProgram(io: CliIo, outcome: RunOutcome = { exitCode: EXIT.
     .option('--json', 'print the full report as JSON instead of the text report')
     .addHelpText('after', REBALANCE_EXAMPLES)
     .action(async (board: string, opts: RebalanceCommandOptions) => {
+      const { runRebalance } = await import('./commands/rebalance.js');
       await runRebalance(board, opts, io);
     });
 
@@ -281,6 +287,7 @@ export function createProgram(io: CliIo, outcome: RunOutcome = { exitCode: EXIT.
     .option('-o, --output <file>', 'write the SVG to this file (default: standard output)')
     .addHelpText('after', DIAGRAM_EXAMPLES)
     .action(async (board: string, opts: DiagramCommandOptions) => {
+      const { runDiagram } = await import('./commands/diagram.js');
       await runDiagram(board, opts, io);
     });
 
@@ -297,6 +304,7 @@ export function createProgram(io: CliIo, outcome: RunOutcome = { exitCode: EXIT.
     .option('--hand-figures <file>', 'board files: add a check of your hand calculation (the figures file trivar check reads)')
     .addHelpText('after', REPORT_EXAMPLES)
     .action(async (board: string, opts: ReportCommandOptions) => {
+      const { runReport } = await import('./commands/report.js');
       await runReport(board, opts, io, `Made with trivar ${VERSION}. Figures come from the model entered; check them against measurements and local codes.`);
     });
 
@@ -309,6 +317,7 @@ export function createProgram(io: CliIo, outcome: RunOutcome = { exitCode: EXIT.
     .option('--diagram <file>', 'also write the current triangle of every line, without and with your capacitors, as SVG')
     .addHelpText('after', CHECK_EXAMPLES)
     .action(async (board: string, figures: string, opts: CheckCommandOptions) => {
+      const { runCheck } = await import('./commands/check.js');
       await runCheck(board, figures, opts, io);
     });
 
@@ -316,7 +325,10 @@ export function createProgram(io: CliIo, outcome: RunOutcome = { exitCode: EXIT.
     .command('schema')
     .description('print the JSON Schema of board files (for editor completion and checking)')
     .option('--installation', 'the schema of installation files (boards: fed from each other) instead')
-    .action((opts: SchemaCommandOptions) => runSchema(io, opts));
+    .action(async (opts: SchemaCommandOptions) => {
+      const { runSchema } = await import('./commands/schema.js');
+      runSchema(io, opts);
+    });
 
   return program;
 }

@@ -173,6 +173,7 @@ export { studyHarmonics } from './boardFile/studyHarmonics.js';
 export type { ScanEvaluator } from './harmonics/scanResonance.js';
 export { scanResonance, createScanEvaluator, scanGrid, stepCombinations } from './harmonics/scanResonance.js';
 export { DUTY_LIMITS, dutyFigures } from './harmonics/capacitorDuty.js';
+export { dutyConditions, withCapacitanceFactor, withLoadsOff, conditionWords } from './harmonics/dutyConditions.js';
 export { tuningOrder, capacitorVoltage, detunedOutputKvar, detunedSusceptance, DETUNING_FACTORS_PERCENT } from './harmonics/detuning.js';
 export { ieee519OrderLimit, ieee519Row } from './harmonics/ieee519.js';
 export { HARMONICS_DEFAULTS } from './harmonics/harmonicsDefaults.js';

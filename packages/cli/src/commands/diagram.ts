@@ -21,8 +21,8 @@ import { UsageError } from '../exitCodes.js';
 import { assertNotInput, writeOutputFile } from '../outputFiles.js';
 import { boardOptionOnBoardFile, chooseBoard } from './chooseBoard.js';
 
-export const DIAGRAM_VIEWS = ['phasors', 'sequence', 'triangles', 'one-line'] as const;
-export type DiagramView = (typeof DIAGRAM_VIEWS)[number];
+import type { DiagramView } from './diagramViews.js';
+export { DIAGRAM_VIEWS, type DiagramView } from './diagramViews.js';
 
 export interface DiagramCommandOptions {
   readonly view?: DiagramView;

@@ -1,5 +1,5 @@
 /** HarmonicsReport → the human-readable report of `trivar harmonics`. */
-import type { DistortionReading, HarmonicsReport, ResonanceScan, CapacitorDuty, TddCheck, NeutralCheck } from '@trivar/core';
+import { conditionWords, type DistortionReading, type HarmonicsReport, type ResonanceScan, type CapacitorDuty, type TddCheck, type NeutralCheck } from '@trivar/core';
 import { fixed, renderTable, section } from './textTable.js';
 import { wrapText } from './wrapText.js';
 
@@ -109,12 +109,20 @@ function dutyLines(d: CapacitorDuty): string[] {
   const lim = d.limits;
   const w = d.worst.figures;
   const cell = (x: number, limit: number | null) => `${fixed(x, 2)}${limit === null ? '' : ` / ${limit}`}`;
+  const dutyCells = (f: typeof w) => [cell(f.voltageRms, lim.voltageRms), cell(f.voltagePeak, lim.voltagePeak), cell(f.currentRms, lim.currentRms), cell(f.kvar, lim.kvar)];
   return [
     prose(`${fixed(d.ratedV, 0)} V units${d.detuningPercent > 0 ? `, detuned p = ${fixed(d.detuningPercent, 2)} %` : ''}; capacitor fundamental voltage ${fixed(d.capacitorVoltageV, 1)} V; judged against ${d.standard === 'ieee-18' ? 'IEEE 18' : 'IEC 60831-1'}`),
     renderTable(
       [{ header: 'worst state', align: 'left' }, { header: 'branch', align: 'left' }, { header: 'V rms pu' }, { header: 'V peak pu' }, { header: 'I rms pu' }, { header: 'kvar pu' }, { header: 'verdict', align: 'left' }],
-      [[d.worst.label, d.worst.branch, cell(w.voltageRms, lim.voltageRms), cell(w.voltagePeak, lim.voltagePeak), cell(w.currentRms, lim.currentRms), cell(w.kvar, lim.kvar), d.ok ? 'within limits in every state' : 'EXCEEDS']],
+      [
+        [`${d.worstNominal.label} (design)`, d.worstNominal.branch, ...dutyCells(d.worstNominal.figures), d.worstNominal.ok ? 'within' : 'EXCEEDS'],
+        [d.worst.label, d.worst.branch, ...dutyCells(w), d.ok ? 'within limits everywhere' : 'EXCEEDS'],
+      ],
     ),
+    prose(
+      `design = nominal capacitance, loads as given; worst of every state at capacitance −${d.capacitanceTolerance.minusPercent} % / nominal / +${d.capacitanceTolerance.plusPercent} %, loads as given and all off: ${d.worst.label}, ${conditionWords(d.worst.condition)}`,
+    ),
+    prose(`highest fundamental voltage across a capacitor: ${fixed(d.highestCapacitorVoltageV, 1)} V (${fixed(d.highestCapacitorVoltageV / d.ratedV, 3)} × rated)`),
     prose(`limits: ${d.limitsSource}`),
   ];
 }

@@ -167,13 +167,15 @@ export function analysePattern(size: number, pairs: Iterable<readonly [number, n
  */
 export function factorInPlace(p: SparsePattern, re: Float64Array, im: Float64Array, relativePivot: number, scale: number): number {
   const floor = relativePivot * scale;
+  const floor2 = floor * floor;
   const { diagonal, neighbourStart, lowerSlot, upperSlot, updateStart, updateSlot } = p;
   for (let k = 0; k < p.size; k++) {
     const d = diagonal[k]!;
     const dr = re[d]!;
     const di = im[d]!;
-    if (Math.hypot(dr, di) <= floor) return p.order[k]!;
     const dd = dr * dr + di * di;
+    // |pivot| ≤ floor, compared squared (Math.hypot cost more than the rest of a small factorisation).
+    if (dd <= floor2) return p.order[k]!;
     const start = neighbourStart[k]!;
     const count = neighbourStart[k + 1]! - start;
     let u = updateStart[k]!;
@@ -248,10 +250,13 @@ export function solveFactored(
   }
   // Back to unknown numbering: permute through a scratch pass over cycles is fiddly;
   // the callers keep a second buffer, so copy via bRe/bIm (which they no longer need).
+  // Plain loops: a subarray view is an allocation, and cost more than the whole solve of a small board.
   for (let k = 0; k < n; k++) {
     bRe[order[k]!] = xRe[k]!;
     bIm[order[k]!] = xIm[k]!;
   }
-  xRe.set(bRe.subarray(0, n));
-  xIm.set(bIm.subarray(0, n));
+  for (let i = 0; i < n; i++) {
+    xRe[i] = bRe[i]!;
+    xIm[i] = bIm[i]!;
+  }
 }

@@ -15,9 +15,9 @@ import { checkVoltages } from './voltageCheck.js';
 import { boardWarnings, GENERAL_CAUTION, NEUTRAL_CAUTION } from './boardWarnings.js';
 import { readLoads } from './readLoads.js';
 import { powerReading } from './powerReading.js';
-import { withNoiseFloor } from './noiseFloor.js';
+import { currentNoiseFloor, withNoiseFloor } from './noiseFloor.js';
 import { judgeOperatingPoint, readIncomer, readTransformer } from './readSupplyState.js';
-import type { BoardResult, LineToLineReading, LossReading, NeutralReading, PhaseReading, UnbalanceReading } from './boardResult.js';
+import type { BoardResult, LineToLineReading, LossReading, NeutralReading, PhaseReading, PowerReading, UnbalanceReading } from './boardResult.js';
 
 const PAIRS: Record<string, readonly [PhaseId, PhaseId][]> = {
   'three-phase-4wire': [['A', 'B'], ['B', 'C'], ['C', 'A']],
@@ -127,6 +127,17 @@ function loadsBelowThreshold(solution: NetworkSolution) {
     const pu = Math.min(...load.branches.map((b, bi) => (b.zip.z === 1 || !states[bi]!.energised ? Infinity : abs(states[bi]!.voltage) / b.vNominal)));
     return pu < solution.lowVoltageThreshold ? [{ name: load.name, pu, threshold: solution.lowVoltageThreshold }] : [];
   });
+}
+
+/**
+ * Per line, the power the board takes (what `analyseSolution(solved).phases[k]` reports as
+ * kW, kvar, kVA, read the same way, noise floor included) without the rest of the analysis:
+ * the correction's sizing loops read only these on most of their trial solves.
+ */
+export function readLinePowers(solved: NetworkSolution): PowerReading[] {
+  const floor = currentNoiseFloor(solved);
+  const phase = boardVoltages(solved).phase;
+  return solved.lineCurrents.map((i, k) => powerReading(mul(phase[k]!, conj(abs(i) < floor ? ZERO : i))));
 }
 
 export function analyseSolution(solved: NetworkSolution): BoardResult {

@@ -22,14 +22,19 @@ function stiffestAdmittance(board: NetworkSolution['board']): number {
   return Math.max(0, ...paths.map((z) => (abs(z) > 0 ? 1 / abs(z) : 0)));
 }
 
-/** The solution with every current under the noise floor set to zero. */
-export function withNoiseFloor(solution: NetworkSolution): NetworkSolution {
+/** The current below which a solution's currents are round-off, A. */
+export function currentNoiseFloor(solution: NetworkSolution): number {
   let largest = 0;
   for (const i of solution.lineCurrents) largest = Math.max(largest, abs(i));
   if (solution.neutralCurrent) largest = Math.max(largest, abs(solution.neutralCurrent));
   for (const states of solution.branches) for (const s of states) largest = Math.max(largest, abs(s.current));
   const board = solution.board;
-  const floor = Math.max(NOISE_FLOOR_RELATIVE * largest, CONDUCTOR_RESOLUTION * board.nominalLineToNeutralV * stiffestAdmittance(board));
+  return Math.max(NOISE_FLOOR_RELATIVE * largest, CONDUCTOR_RESOLUTION * board.nominalLineToNeutralV * stiffestAdmittance(board));
+}
+
+/** The solution with every current under the noise floor set to zero. */
+export function withNoiseFloor(solution: NetworkSolution): NetworkSolution {
+  const floor = currentNoiseFloor(solution);
   const clean = (i: ComplexValue): ComplexValue => (abs(i) < floor ? ZERO : i);
   return {
     ...solution,

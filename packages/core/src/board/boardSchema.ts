@@ -11,6 +11,7 @@
  * neutral load on a board with no neutral...) live in `boardRules.ts`.
  */
 import * as z from 'zod';
+import { groupDigits } from '../_internal/groupDigits.js';
 import { conventionsSchema } from './conventions/conventionsSchema.js';
 import { NOTATION_ACCEPTED, readVoltageNotation } from './conventions/voltageNotation.js';
 
@@ -23,7 +24,7 @@ const nonNegative = z.number().nonnegative();
  */
 function within(range: PhysicalRange): z.ZodNumber {
   const { min, max, unit, above } = range;
-  const text = `a number ${above ? 'above' : 'from'} ${min.toLocaleString('en')} ${above ? 'and at most' : 'to'} ${max.toLocaleString('en')}${unit ? ` ${unit}` : ''}`;
+  const text = `a number ${above ? 'above' : 'from'} ${groupDigits(min)} ${above ? 'and at most' : 'to'} ${groupDigits(max)}${unit ? ` ${unit}` : ''}`;
   return (above ? z.number().gt(min, { message: text }) : z.number().min(min, { message: text })).max(max, { message: text });
 }
 

@@ -5,6 +5,7 @@
  */
 import { isAlias, isCollection, isMap, isPair, isScalar, parseDocument, type Document, type Node } from 'yaml';
 import { InputError, inputIssue, type InputIssue } from '../errors.js';
+import { readJsonText } from './readJsonText.js';
 
 export const BOARD_TEXT_LIMITS = {
   /** Deepest nesting accepted. A board file nests about 5 levels; yaml's own composer overflows the stack near 1000. */
@@ -193,6 +194,15 @@ export function readBoardText(text: string): unknown {
       `at most ${BOARD_TEXT_LIMITS.maxEntries.toLocaleString('en')} entries (lines and list items)`,
       `the file holds more than ${BOARD_TEXT_LIMITS.maxEntries.toLocaleString('en')} entries (lines and list items); a board of 1,000 circuits has under 10,000`,
     );
+  // JSON boards skip yaml's parser when the engine's JSON.parse gives the same data (readJsonText.ts).
+  const value = readJsonText(body) ?? readYamlText(body);
+  if (value === null || value === undefined)
+    throw new InputError([inputIssue('missing', '', 'a board object with supply and loads')], 'the board file is empty');
+  return value;
+}
+
+/** YAML 1.2 text (limits already checked) → plain data: the general reader behind readBoardText. */
+export function readYamlText(body: string): unknown {
   const doc = parseDocument(body, { prettyErrors: true, uniqueKeys: true, version: '1.2', merge: false });
   if (doc.errors.length) throw new InputError(syntaxIssues(doc), READ_HEADING);
   const declared = doc.directives?.yaml;
@@ -202,8 +212,5 @@ export function readBoardText(text: string): unknown {
       'no %YAML line, or %YAML 1.2',
       `the file starts with "%YAML ${declared.version}": board files are always read as YAML 1.2 (under 1.1, 012 would mean 10 and 1:30 would mean 90); remove the %YAML line and check numbers written that way`,
     );
-  const value = toPlainData(doc);
-  if (value === null || value === undefined)
-    throw new InputError([inputIssue('missing', '', 'a board object with supply and loads')], 'the board file is empty');
-  return value;
+  return toPlainData(doc);
 }

@@ -12,7 +12,7 @@ import { abs, sub, ZERO } from '../complex.js';
 import { terminalVoltage } from '../network/solveNetwork.js';
 import type { BankModel } from './harmonicModel.js';
 import type { OrderSolution } from './readHarmonics.js';
-import type { CapacitorDuty, DutyCase, DutyFigures, DutyLimits } from './harmonicsResult.js';
+import type { CapacitorDuty, DutyCase, DutyCondition, DutyFigures, DutyLimits } from './harmonicsResult.js';
 
 export const DUTY_LIMITS: Readonly<Record<CapacitorDuty['standard'], { limits: DutyLimits; source: string }>> = {
   'ieee-18': {
@@ -26,8 +26,11 @@ export const DUTY_LIMITS: Readonly<Record<CapacitorDuty['standard'], { limits: D
   },
 };
 
-/** Figures per unit for one bank branch from its branch voltage at each order. */
-export function dutyFigures(branchVoltages: readonly { order: number; volts: number }[], ratedV: number, p: number): DutyFigures {
+/**
+ * Figures per unit for one bank branch from its branch voltage at each order. `capacitanceFactor`
+ * is the units' capacitance over nominal: current and kvar scale with it [METHODS §4].
+ */
+export function dutyFigures(branchVoltages: readonly { order: number; volts: number }[], ratedV: number, p: number, capacitanceFactor = 1): DutyFigures {
   let v2 = 0;
   let vSum = 0;
   let i2 = 0;
@@ -39,7 +42,7 @@ export function dutyFigures(branchVoltages: readonly { order: number; volts: num
     i2 += (h * vc) ** 2;
     q += h * vc * vc;
   }
-  return { voltageRms: Math.sqrt(v2), voltagePeak: vSum, currentRms: Math.sqrt(i2), kvar: q };
+  return { voltageRms: Math.sqrt(v2), voltagePeak: vSum, currentRms: capacitanceFactor * Math.sqrt(i2), kvar: capacitanceFactor * q };
 }
 
 export function withinLimits(f: DutyFigures, limits: DutyLimits): boolean {
@@ -66,7 +69,14 @@ export function dutyRatio(f: DutyFigures, limits: DutyLimits): number {
  * same per-unit duty at a given branch position, so the first part on is read.
  * Returns null when no part is on.
  */
-export function dutyCase(orders: readonly OrderSolution[], bank: BankModel, steps: readonly boolean[], label: string, limits: DutyLimits): DutyCase | null {
+export function dutyCase(
+  orders: readonly OrderSolution[],
+  bank: BankModel,
+  steps: readonly boolean[],
+  label: string,
+  limits: DutyLimits,
+  condition: DutyCondition = { capacitancePercent: 100, loads: 'as given' },
+): DutyCase | null {
   const partOn = bank.fixedLoad ?? bank.stepLoads.find((_, k) => steps[k]);
   if (partOn === undefined) return null;
   const board = orders[0]!.solution.board;
@@ -76,9 +86,10 @@ export function dutyCase(orders: readonly OrderSolution[], bank: BankModel, step
       order: o.order,
       volts: abs(sub(terminalVoltage(o.solution, b.from) ?? ZERO, terminalVoltage(o.solution, b.to) ?? ZERO)),
     }));
-    const figures = dutyFigures(volts, bank.ratedV, bank.detuning);
+    const figures = dutyFigures(volts, bank.ratedV, bank.detuning, condition.capacitancePercent / 100);
     const branch = `${b.from}-${b.to.startsWith('star:') ? 'star' : b.to}`;
-    const candidate: DutyCase = { label, steps, branch, figures, ok: withinLimits(figures, limits) };
+    const capacitorVoltageV = volts[0]!.volts / Math.abs(1 - bank.detuning);
+    const candidate: DutyCase = { label, steps, branch, figures, ok: withinLimits(figures, limits), condition, capacitorVoltageV };
     if (!worst || dutyRatio(figures, limits) > dutyRatio(worst.figures, limits)) worst = candidate;
   }
   return worst;

@@ -8,6 +8,8 @@
 import type { Board, BoardLoad, Terminal } from '../board/boardModel.js';
 import { degToRad } from '../complex.js';
 import { HARMONICS_DEFAULTS } from './harmonicsDefaults.js';
+import { CORRECTION_DEFAULTS } from '../correction/correctionDefaults.js';
+import type { CapacitanceTolerance } from './harmonicsResult.js';
 import type { HarmonicLoadSpec, HarmonicsBoardSpec, HarmonicsSectionSpec, InstalledBankSpec, LinearForm, SpectrumSpec } from './harmonicsSpec.js';
 import { TYPICAL_SPECTRA } from './typicalSpectra.js';
 
@@ -57,6 +59,8 @@ export interface HarmonicModel {
   readonly pcc: { readonly shortCircuitRatio: number | null; readonly demandCurrentA: number | null } | null;
   readonly scan: { readonly maxOrder: number; readonly step: number };
   readonly capacitorStandard: 'ieee-18' | 'iec-60831-1';
+  /** Capacitance tolerance of the bank's units, % (the duty is checked at each end). */
+  readonly capacitanceTolerance: CapacitanceTolerance;
 }
 
 function spectrumContent(spec: Exclude<SpectrumSpec, string>): OrderContent[] {
@@ -142,6 +146,10 @@ export function resolveHarmonicModel(spec: HarmonicsBoardSpec, board: Board, ban
     pcc: section.pcc ? { shortCircuitRatio: section.pcc.shortCircuitRatio ?? null, demandCurrentA: section.pcc.demandCurrentA ?? null } : null,
     scan: { maxOrder: section.scan?.maxOrder ?? HARMONICS_DEFAULTS.scanMaxOrder, step: section.scan?.step ?? HARMONICS_DEFAULTS.scanStep },
     capacitorStandard: section.capacitorStandard ?? (board.frequencyHz === 60 ? 'ieee-18' : 'iec-60831-1'),
+    capacitanceTolerance: {
+      minusPercent: section.bank?.capacitanceTolerance?.minusPercent ?? CORRECTION_DEFAULTS.capacitanceTolerance.minusPercent,
+      plusPercent: section.bank?.capacitanceTolerance?.plusPercent ?? CORRECTION_DEFAULTS.capacitanceTolerance.plusPercent,
+    },
   };
 }
 

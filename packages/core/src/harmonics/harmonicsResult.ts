@@ -142,6 +142,19 @@ export interface DutyLimits {
   readonly kvar: number | null;
 }
 
+export interface CapacitanceTolerance {
+  readonly minusPercent: number;
+  readonly plusPercent: number;
+}
+
+/** Where a duty case was found: the units' capacitance and the board's loads. */
+export interface DutyCondition {
+  /** Capacitance of the units, % of nominal: 100, or an end of their tolerance (95, 110…). */
+  readonly capacitancePercent: number;
+  /** `as given`: the board's loads as in the file; `off`: every load off, the highest voltage a bank on a lagging board sees. */
+  readonly loads: 'as given' | 'off';
+}
+
 export interface DutyCase {
   readonly label: string;
   readonly steps: readonly boolean[];
@@ -149,6 +162,10 @@ export interface DutyCase {
   readonly branch: string;
   readonly figures: DutyFigures;
   readonly ok: boolean;
+  /** The condition of this state with the largest duty (figure / limit). */
+  readonly condition: DutyCondition;
+  /** Fundamental rms voltage across one capacitor element of that branch, V. */
+  readonly capacitorVoltageV: number;
 }
 
 export interface CapacitorDuty {
@@ -159,8 +176,17 @@ export interface CapacitorDuty {
   readonly detuningPercent: number;
   /** Fundamental voltage across the capacitors at nominal network voltage, V (U/(1 − p) when detuned). */
   readonly capacitorVoltageV: number;
+  /** Capacitance tolerance of the units, % (each end is checked). */
+  readonly capacitanceTolerance: CapacitanceTolerance;
+  /** The conditions every state is checked in. */
+  readonly conditions: readonly DutyCondition[];
+  /** Per state, its worst condition. */
   readonly cases: readonly DutyCase[];
   readonly worst: DutyCase;
+  /** The worst state at nominal capacitance with the loads as given (the design point alone). */
+  readonly worstNominal: DutyCase;
+  /** Highest fundamental rms voltage across a capacitor element in any state and condition, V. */
+  readonly highestCapacitorVoltageV: number;
   readonly ok: boolean;
 }
 

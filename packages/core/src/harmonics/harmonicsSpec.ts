@@ -10,6 +10,7 @@
 import * as z from 'zod';
 import type { BoardBaseSpec, LoadBaseSpec } from '../board/boardSchema.js';
 import { SPECTRUM_KINDS } from './typicalSpectra.js';
+import { toleranceSchema } from '../correction/correctionSpec.js';
 
 /** Highest harmonic order studied: IEEE 519-2014 limits stop at h = 50. */
 export const MAX_ORDER = 50;
@@ -90,6 +91,7 @@ export const installedBankSchema = z
     stepsKvar: z.array(z.number().positive()).min(1).max(12).describe('three-phase output of each switched step at rated voltage, kvar'),
     fixedKvar: z.number().nonnegative().optional().describe('three-phase output of the permanently connected part at rated voltage, kvar; default 0'),
     detuningPercent: z.number().min(0).max(20).optional().describe('detuning reactor, p = X_L/X_C in %; 0 or absent for a plain bank'),
+    capacitanceTolerance: toleranceSchema.optional().describe('capacitance tolerance of the units; the duty is checked at each end; default −5 % … +10 % (IEC 60831-1, from memory)'),
   })
   .describe('a capacitor bank on the board whose steps the scan switches');
 

@@ -14,6 +14,7 @@ import { solveAtOrder } from './networkAtOrder.js';
 import { readLines, readLineToLine, readNeutral, type OrderSolution } from './readHarmonics.js';
 import { combinationLabel, scanResonance, stepCombinations } from './scanResonance.js';
 import { DUTY_LIMITS, dutyCase, dutyRatio } from './capacitorDuty.js';
+import { conditionWords, dutyConditions, withCapacitanceFactor, withLoadsOff } from './dutyConditions.js';
 import { IEEE_519_SOURCE, ieee519OrderLimit, ieee519Row } from './ieee519.js';
 import { checkVoltageDistortion } from './voltageDistortion.js';
 import { HARMONICS_DEFAULTS } from './harmonicsDefaults.js';
@@ -97,19 +98,31 @@ function capacitorDuty(board: Board, model: HarmonicModel, solve?: SolveOptions)
   const bank = model.bank;
   if (!bank) return null;
   const { limits, source } = DUTY_LIMITS[model.capacitorStandard];
+  const conditions = dutyConditions(model.capacitanceTolerance);
+  const ratio = (c: DutyCase) => dutyRatio(c.figures, limits);
   const cases: DutyCase[] = [];
+  const nominalCases: DutyCase[] = [];
+  let highestCapacitorVoltageV = 0;
   // States that switch electrically identical parts (equal steps) are one state: solve each once.
   const seen = new Set<string>();
   for (const steps of stepCombinations(bank.stepLoads.length)) {
     const key = stateKey(board, bank, steps);
     if (seen.has(key)) continue;
     seen.add(key);
-    const orders = solveHarmonicOrders(withSteps(board, bank, steps), model, solve);
-    const c = dutyCase(orders, bank, steps, combinationLabel(bank, steps), limits);
-    if (c) cases.push(c);
+    const switched = withSteps(board, bank, steps);
+    let worst: DutyCase | null = null;
+    for (const condition of conditions) {
+      const at = withCapacitanceFactor(condition.loads === 'off' ? withLoadsOff(switched) : switched, model, condition.capacitancePercent / 100);
+      const c = dutyCase(solveHarmonicOrders(at.board, at.model, solve), at.model.bank!, steps, combinationLabel(bank, steps), limits, condition);
+      if (!c) continue;
+      if (condition.capacitancePercent === 100 && condition.loads === 'as given') nominalCases.push(c);
+      highestCapacitorVoltageV = Math.max(highestCapacitorVoltageV, c.capacitorVoltageV);
+      if (!worst || ratio(c) > ratio(worst)) worst = c;
+    }
+    if (worst) cases.push(worst);
   }
   if (cases.length === 0) return null;
-  const worst = cases.reduce((w, c) => (dutyRatio(c.figures, limits) > dutyRatio(w.figures, limits) ? c : w));
+  const worstOf = (list: readonly DutyCase[]) => list.reduce((w, c) => (ratio(c) > ratio(w) ? c : w));
   const vNetwork = bank.elementNominalV;
   return {
     standard: model.capacitorStandard,
@@ -118,8 +131,12 @@ function capacitorDuty(board: Board, model: HarmonicModel, solve?: SolveOptions)
     ratedV: bank.ratedV,
     detuningPercent: bank.detuning * 100,
     capacitorVoltageV: vNetwork / (1 - bank.detuning),
+    capacitanceTolerance: model.capacitanceTolerance,
+    conditions,
     cases,
-    worst,
+    worst: worstOf(cases),
+    worstNominal: worstOf(nominalCases),
+    highestCapacitorVoltageV,
     ok: cases.every((c) => c.ok),
   };
 }
@@ -133,6 +150,11 @@ function assumptions(board: Board, model: HarmonicModel): string[] {
     `linear loads as ${[...forms].join(' and ') || 'none'} R/X from their solved fundamental values (rated loads default to parallel R ‖ jX, loads in ohms and capacitors keep series form)`,
     'non-linear loads as ideal current sources; injection angle = spectrum angle + h × the angle of the load’s fundamental current',
     `source and feeder resistance ${model.resistance === 'constant' ? 'constant with frequency' : '× √h (skin effect)'}; reactances × h (inductive) or / h (capacitive)`,
+    ...(model.bank
+      ? [
+          `capacitor duty: every bank state at capacitance −${model.capacitanceTolerance.minusPercent} %, nominal and +${model.capacitanceTolerance.plusPercent} %, with the loads as given and with every load off (the highest voltage; a controller normally switches steps off at light load, so that row covers a step left on)`,
+        ]
+      : []),
     model.background.length ? 'background supply distortion at each phase with h × the phase angle of its EMF' : 'no background supply distortion (the supply EMF is sinusoidal)',
   ];
 }
@@ -185,7 +207,9 @@ export function analyseHarmonics(board: Board, model: HarmonicModel, options: Ha
     const closest = hits.reduce((b, x) => (Math.abs(x.order - o) < Math.abs(b.order - o) ? x : b));
     warn('resonance', harmonicsWarningText.resonance(hits.map((x) => x.label), closest.order, o), closest.order, o);
   }
-  if (duty) for (const c of duty.cases) if (!c.ok) warn('capacitor-duty', harmonicsWarningText.capacitorDuty(c.label, c.branch, dutyMessage(c, duty.limits)), dutyRatio(c.figures, duty.limits), 1);
+  if (duty)
+    for (const c of duty.cases)
+      if (!c.ok) warn('capacitor-duty', harmonicsWarningText.capacitorDuty(`${c.label} (${conditionWords(c.condition)})`, c.branch, dutyMessage(c, duty.limits)), dutyRatio(c.figures, duty.limits), 1);
   if (tdd)
     for (const l of tdd.lines) {
       const over = l.orders.filter((o) => !o.ok).map((o) => o.order);

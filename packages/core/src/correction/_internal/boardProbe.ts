@@ -6,8 +6,8 @@
  */
 import type { Board } from '../../board/boardModel.js';
 import type { BoardResult } from '../../analysis/boardResult.js';
-import { analyseSolution } from '../../analysis/analyseSolution.js';
-import { solveNetwork, type SolveOptions } from '../../network/solveNetwork.js';
+import { analyseSolution, readLinePowers } from '../../analysis/analyseSolution.js';
+import { compileBoard, solveCompiledBoard, type CompiledBoard, type SolveOptions } from '../../network/solveNetwork.js';
 import { addCorrectionEquipment, equipmentGroups, susceptanceFromKvar, type BranchSlot, type EquipmentGroup } from '../equipment.js';
 
 export interface ProbeState {
@@ -46,6 +46,7 @@ export function createProbe(base: Board, slots: readonly BranchSlot[], name: str
       slots,
       kvar.map((q, i) => susceptanceFromKvar(q, slots[i]!.vNominal)),
     );
+  const solveEquipped = equippedSolver(base);
   return {
     slots,
     base,
@@ -54,16 +55,52 @@ export function createProbe(base: Board, slots: readonly BranchSlot[], name: str
     at(kvar) {
       count++;
       const board = addCorrectionEquipment(base, groups(kvar));
-      const result = analyseSolution(solveNetwork(board, solve));
+      const solution = solveEquipped(board, solve);
+      // Most trial solves are read for line powers only: the whole analysis waits until asked for.
+      const lines = readLinePowers(solution);
+      let result: BoardResult | undefined;
       return {
         kvar: [...kvar],
         board,
-        result,
-        lineP: result.phases.map((p) => p.kW),
-        lineQ: result.phases.map((p) => p.kvar),
-        lineS: result.phases.map((p) => p.kVA),
+        get result() {
+          return (result ??= analyseSolution(solution));
+        },
+        lineP: lines.map((p) => p.kW),
+        lineQ: lines.map((p) => p.kvar),
+        lineS: lines.map((p) => p.kVA),
       };
     },
+  };
+}
+
+/**
+ * Solves the base board with equipment added, compiling once per sizing loop instead of once
+ * per candidate. Candidates differ only in the added branches' values, which a compiled network
+ * takes as new branch powers; it is recompiled only when the set of zero-valued branches
+ * changes, since a zero branch joins nothing (an all-zero floating star point is a dead node).
+ * Every candidate's solve is the one `solveNetwork` would do: same network, same start.
+ */
+function equippedSolver(base: Board): (board: Board, options: SolveOptions) => ReturnType<typeof solveCompiledBoard> {
+  const compiled = new Map<string, CompiledBoard>();
+  const baseLoads = base.loads.length;
+  return (board, options) => {
+    const added = board.loads.slice(baseLoads).flatMap((l) => l.branches);
+    const zeros = added.map((b) => (b.sNominal.re === 0 && b.sNominal.im === 0 ? '0' : '1')).join('');
+    let c = compiled.get(zeros);
+    if (!c) {
+      c = compileBoard(board);
+      compiled.set(zeros, c);
+    } else {
+      const net = c.network;
+      let k = c.installation.layout.branchOffset[c.boardIndex]!;
+      for (let l = 0; l < baseLoads; l++) k += board.loads[l]!.branches.length;
+      for (const b of added) {
+        net.powerRe[k] = b.sNominal.re;
+        net.powerIm[k] = b.sNominal.im;
+        k++;
+      }
+    }
+    return solveCompiledBoard({ ...c, board }, options);
   };
 }
 

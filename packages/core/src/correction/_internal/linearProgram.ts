@@ -9,7 +9,7 @@
  * next breaks ties among vertices equal in the first, and so on — the optimum
  * of a lexicographic LP over a pointed polyhedron is always a vertex.
  */
-import { dot, solveLinear, subsets } from './realMatrix.js';
+import { dot, solveLinearInPlace, subsets } from './realMatrix.js';
 
 export interface LinearProgram {
   /** Each row: coefficients of one constraint `row·z ≤ bound`. */
@@ -51,12 +51,18 @@ export function solveLinearProgram(lp: LinearProgram): number[] | null {
   const scale = Math.max(1e-12, ...bounds.map(Math.abs));
   let best: number[] | null = null;
   let bestValues: number[] = [];
+  // Every vertex candidate's system in one typed work area (bit-identical to solveLinear, see solveLinearInPlace).
+  const system = new Float64Array(d * (d + 1));
+  const rowOf = new Int32Array(d);
+  const solution = new Float64Array(d);
   for (const active of subsets(rows.length, d)) {
-    const z = solveLinear(
-      active.map((i) => rows[i]!),
-      active.map((i) => bounds[i]!),
-    );
-    if (!z) continue;
+    for (let r = 0; r < d; r++) {
+      const row = rows[active[r]!]!;
+      for (let c = 0; c < d; c++) system[r * (d + 1) + c] = row[c]!;
+      system[r * (d + 1) + d] = bounds[active[r]!]!;
+    }
+    if (!solveLinearInPlace(system, d, rowOf, solution)) continue;
+    const z = Array.from(solution);
     const zScale = Math.max(scale, ...z.map(Math.abs));
     if (!rows.every((row, i) => dot(row, z) <= bounds[i]! + FEASIBILITY * zScale)) continue;
     const values = lp.objectives.map((c) => dot(c, z));

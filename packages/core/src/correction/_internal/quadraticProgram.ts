@@ -8,7 +8,7 @@
  * most a few hundred 12×12 solves — simpler and more predictable than an
  * iterative active-set or projected-gradient code at this size.
  */
-import { dot, multiplyVector, solveLinear, subsets } from './realMatrix.js';
+import { dot, multiplyVector, solveLinearInPlace, subsets } from './realMatrix.js';
 
 export interface QuadraticProgram {
   readonly h: readonly (readonly number[])[];
@@ -35,29 +35,35 @@ export function solveQuadraticProgram(qp: QuadraticProgram): number[] | null {
   const scale = Math.max(1, ...qp.c.map(Math.abs), ...qp.h.flat().map(Math.abs));
   let best: number[] | null = null;
   let bestValue = Infinity;
+  // Thousands of KKT systems per call: one typed work area for all (see solveLinearInPlace).
+  const largest = n + Math.min(n, m);
+  const kkt = new Float64Array(largest * (largest + 1));
+  const rowOf = new Int32Array(largest);
+  const sol = new Float64Array(largest);
   for (let k = 0; k <= Math.min(n, m); k++) {
+    const size = n + k;
+    const w = size + 1;
     for (const active of subsets(m, k)) {
       // [H  −Aᵀ] [x]   [−c]
       // [A   0 ] [λ] = [ b]
-      const size = n + k;
-      const kkt = Array.from({ length: size }, () => new Array<number>(size).fill(0));
-      const rhs = new Array<number>(size).fill(0);
+      kkt.fill(0, 0, size * w);
       for (let i = 0; i < n; i++) {
-        for (let j = 0; j < n; j++) kkt[i]![j] = qp.h[i]![j]!;
-        rhs[i] = -qp.c[i]!;
+        for (let j = 0; j < n; j++) kkt[i * w + j] = qp.h[i]![j]!;
+        kkt[i * w + size] = -qp.c[i]!;
       }
-      active.forEach((ci, a) => {
+      for (let a = 0; a < k; a++) {
+        const row = qp.rows[active[a]!]!;
         for (let j = 0; j < n; j++) {
-          kkt[n + a]![j] = qp.rows[ci]![j]!;
-          kkt[j]![n + a] = -qp.rows[ci]![j]!;
+          kkt[(n + a) * w + j] = row[j]!;
+          kkt[j * w + n + a] = -row[j]!;
         }
-        rhs[n + a] = qp.bounds[ci]!;
-      });
-      const sol = solveLinear(kkt, rhs);
-      if (!sol) continue;
-      const x = sol.slice(0, n);
-      const lambdas = sol.slice(n);
-      if (lambdas.some((l) => l < -TOLERANCE * scale)) continue;
+        kkt[(n + a) * w + size] = qp.bounds[active[a]!]!;
+      }
+      if (!solveLinearInPlace(kkt, size, rowOf, sol)) continue;
+      let negative = false;
+      for (let a = 0; a < k; a++) if (sol[n + a]! < -TOLERANCE * scale) negative = true;
+      if (negative) continue;
+      const x = Array.from(sol.subarray(0, n));
       const xScale = Math.max(1, ...x.map(Math.abs));
       if (!qp.rows.every((row, i) => dot(row, x) >= qp.bounds[i]! - TOLERANCE * norms[i]! * xScale)) continue;
       const value = objective(qp, x);

@@ -38,6 +38,42 @@ export function solveLinear(a: Matrix, b: readonly number[], relativePivot = 1e-
   return x;
 }
 
+/**
+ * `solveLinear` on an augmented system held in a typed array (row r at `r * (n + 1)`, the
+ * right-hand side last), for callers that solve thousands of small systems (the quadratic
+ * programme's active sets): no allocation, and the very same operations in the same order,
+ * so the answers are bit for bit those of `solveLinear`. Overwrites `m`; rows are swapped
+ * through `rowOf` (length ≥ n). Returns false where `solveLinear` returns null.
+ */
+export function solveLinearInPlace(m: Float64Array, n: number, rowOf: Int32Array, x: Float64Array, relativePivot = 1e-13): boolean {
+  const w = n + 1;
+  let largest = 0;
+  for (let r = 0; r < n; r++) for (let c = 0; c < n; c++) largest = Math.max(largest, Math.abs(m[r * w + c]!));
+  if (largest === 0) return n === 0;
+  for (let r = 0; r < n; r++) rowOf[r] = r * w;
+  for (let col = 0; col < n; col++) {
+    let pivotRow = col;
+    for (let r = col + 1; r < n; r++) if (Math.abs(m[rowOf[r]! + col]!) > Math.abs(m[rowOf[pivotRow]! + col]!)) pivotRow = r;
+    if (Math.abs(m[rowOf[pivotRow]! + col]!) <= relativePivot * largest) return false;
+    const swap = rowOf[col]!;
+    rowOf[col] = rowOf[pivotRow]!;
+    rowOf[pivotRow] = swap;
+    const pivot = rowOf[col]!;
+    for (let r = col + 1; r < n; r++) {
+      const row = rowOf[r]!;
+      const f = m[row + col]! / m[pivot + col]!;
+      if (f !== 0) for (let c = col; c <= n; c++) m[row + c] = m[row + c]! - f * m[pivot + c]!;
+    }
+  }
+  for (let r = n - 1; r >= 0; r--) {
+    const row = rowOf[r]!;
+    let s = m[row + n]!;
+    for (let c = r + 1; c < n; c++) s -= m[row + c]! * x[c]!;
+    x[r] = s / m[row + r]!;
+  }
+  return true;
+}
+
 export const transpose = (a: Matrix): number[][] => (a.length === 0 ? [] : a[0]!.map((_, j) => a.map((row) => row[j]!)));
 
 export const multiply = (a: Matrix, b: Matrix): number[][] =>

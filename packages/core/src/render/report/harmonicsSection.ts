@@ -1,5 +1,6 @@
 /** The report section of a harmonic study: distortion per line and in the neutral, IEEE 519, resonance scan, capacitor duty. */
 import type { HarmonicsReport } from '../../harmonics/harmonicsResult.js';
+import { conditionWords } from '../../harmonics/dutyConditions.js';
 import { fixed } from '../svgText.js';
 import { renderImpedanceScan } from '../renderImpedanceScan.js';
 import type { ReportBlock, ReportSection } from './reportDocument.js';
@@ -88,7 +89,8 @@ export function harmonicsSection(h: HarmonicsReport): ReportSection {
       kind: 'facts',
       items: [
         ['Capacitor units', `rated ${fixed(d.ratedV, 0)} V; fundamental ${fixed(d.capacitorVoltageV, 1)} V across them${d.detuningPercent ? `; detuned ${fixed(d.detuningPercent, 1)} %` : ''}`],
-        ['Worst state', `${w.label}, branch ${w.branch}`],
+        ['Worst state', `${w.label}, branch ${w.branch}, ${conditionWords(w.condition)} (checked at capacitance −${d.capacitanceTolerance.minusPercent} %, nominal and +${d.capacitanceTolerance.plusPercent} %, loads as given and all off)`],
+        ['Highest capacitor voltage (fundamental)', `${fixed(d.highestCapacitorVoltageV, 1)} V`],
         ['V rms / V peak / I rms / kvar (per unit)', `${fixed(w.figures.voltageRms, 2)} / ${fixed(w.figures.voltagePeak, 2)} / ${fixed(w.figures.currentRms, 2)} / ${fixed(w.figures.kvar, 2)}`],
         ['Duty verdict', d.ok ? 'within limits in every state' : 'LIMIT EXCEEDED in at least one state'],
       ],

@@ -1,0 +1,53 @@
+/**
+ * The conditions the capacitor duty is checked in [METHODS §4: "multiply current/kvar by actual
+ * C/C_rated (tolerance)"]: the units at nominal capacitance and at both ends of their tolerance
+ * (more capacitance draws more current and moves the resonance down, less moves it up, perhaps
+ * onto an injected order), each with the board's loads as given and with every load off — the
+ * highest voltage the bank sees on a board whose loads draw lagging current (the bank's own rise
+ * through the source impedance, no load drop), with background distortion undamped by any load.
+ */
+import type { Board, BoardLoad } from '../board/boardModel.js';
+import type { CapacitanceTolerance, DutyCondition } from './harmonicsResult.js';
+import type { HarmonicModel, LoadBehaviour } from './harmonicModel.js';
+
+/** Nominal with the loads as given first (ties keep the plain case), then the tolerance ends, then the same with every load off. */
+export function dutyConditions(tolerance: CapacitanceTolerance): DutyCondition[] {
+  const capacitance = [100, 100 - tolerance.minusPercent, 100 + tolerance.plusPercent].filter((c, i, all) => all.indexOf(c) === i);
+  return (['as given', 'off'] as const).flatMap((loads) => capacitance.map((capacitancePercent) => ({ capacitancePercent, loads })));
+}
+
+/** Every load of the board off (what a study added, such as the bank, stays), as `withSteps` switches a step off. */
+export function withLoadsOff(board: Board): Board {
+  return { ...board, loads: board.loads.map((l): BoardLoad => (l.origin === 'board' ? { ...l, branches: l.branches.map((b) => ({ ...b, sNominal: { re: 0, im: 0 } })) } : l)) };
+}
+
+/**
+ * The bank's units at `factor` × their nominal capacitance. A plain part's susceptance scales by
+ * the factor; in a detuned part the capacitor does, so p = X_L/X_C becomes p·factor and the
+ * effective susceptance B_C/(1 − p) becomes B_C·factor/(1 − p·factor).
+ */
+export function withCapacitanceFactor(board: Board, model: HarmonicModel, factor: number): { board: Board; model: HarmonicModel } {
+  const bank = model.bank;
+  if (!bank || factor === 1) return { board, model };
+  const p = bank.detuning;
+  const scale = (factor * (1 - p)) / (1 - p * factor);
+  const parts = new Set([...(bank.fixedLoad === null ? [] : [bank.fixedLoad]), ...bank.stepLoads]);
+  return {
+    board: {
+      ...board,
+      loads: board.loads.map((l, i): BoardLoad => (parts.has(i) ? { ...l, branches: l.branches.map((b) => ({ ...b, sNominal: { re: b.sNominal.re * scale, im: b.sNominal.im * scale } })) } : l)),
+    },
+    model: {
+      ...model,
+      loads: model.loads.map((b, i): LoadBehaviour => (parts.has(i) && b.kind === 'detuned' ? { kind: 'detuned', p: b.p * factor } : b)),
+      bank: { ...bank, detuning: p * factor },
+    },
+  };
+}
+
+/** A condition in words: `nominal capacitance, loads as given`, `capacitance +10 %, every load off`. */
+export function conditionWords(c: DutyCondition): string {
+  const deviation = c.capacitancePercent - 100;
+  const capacitance = deviation === 0 ? 'nominal capacitance' : `capacitance ${deviation > 0 ? '+' : '−'}${Math.abs(Number(deviation.toFixed(2)))} %`;
+  return `${capacitance}, ${c.loads === 'off' ? 'every load off' : 'loads as given'}`;
+}
