@@ -150,6 +150,38 @@ describe('installation report', () => {
     expect(section(doc, 'board-main').blocks.some((b) => b.kind === 'paragraph' && /only feeds others/.test(b.text))).toBe(true);
   });
 
+  it("follows the file's conventions: L1/L2/L3 in every table and drawing, and the limits it names", () => {
+    const text = readFileSync(RISER, 'utf8')
+      .replace(/connection: A-N/g, 'connection: L1-N')
+      .replace(/connection: B-N/g, 'connection: L2-N')
+      .replace(/connection: C-N/g, 'connection: L3-N')
+      .replace(/connection: A-B/g, 'connection: L1-L2')
+      .replace(/connection: ABC-delta/g, 'connection: L1L2L3-delta');
+    const file = { ...(readBoardText(text) as object), conventions: { voltageLimits: 'c84-service-a' } };
+    const spec = parseInstallation(file);
+    const result = solveInstallation(file);
+    expect(result.boards[0]!.result.conventions.phaseNames).toBe('L1/L2/L3');
+    const doc = buildInstallationReport({ spec, result });
+    const floor4 = section(doc, 'board-floor-4');
+    const schedule = table(floor4, /Circuits as solved/);
+    expect(schedule.rows.map((r) => r[2])).toEqual(['L1-N', 'L2-N', 'L3-N', 'L1-L2']);
+    const limits = table(floor4, /against the limits/);
+    expect(limits.note).toContain('±5 % of nominal (c84-service-a)');
+    expect(limits.rows.map((r) => r[0])).toEqual(['L1-N', 'L2-N', 'L3-N', 'L1-L2', 'L2-L3', 'L3-L1']);
+    expect(limits.rows[0]![3]).toBe('219.4 – 242.5');
+    expect(limits.note).toContain('ANSI C84.1 Range A');
+    // Verdicts agree with the board's own voltage check (which also judges every load).
+    const floor4Result = result.boards.find((b) => b.name === 'Floor 4')!.result;
+    const anyOutside = limits.rows.some((r) => r[5] !== 'within');
+    if (anyOutside) expect(floor4Result.voltageCheck.verdict).not.toBe('within');
+    expect(table(section(doc, 'feeders'), /every feeder/).columns.map((c) => c.label).slice(2, 6)).toEqual(['L1 A', 'L2 A', 'L3 A', 'N A']);
+    const oneLine = section(doc, 'installation').blocks.find((b) => b.kind === 'figure');
+    expect(oneLine?.kind === 'figure' && oneLine.svg).toMatch(/L1 [\d.]+ · L2 [\d.]+ · L3 [\d.]+ A/);
+    const phasors = floor4.blocks.find((b) => b.kind === 'figure');
+    expect(phasors?.kind === 'figure' && phasors.svg).toContain('font-size="0.75em">L1</tspan>');
+    expect(phasors?.kind === 'figure' && phasors.svg).toContain('0° = phase-L1 source voltage');
+  });
+
   it('cautions from every board, once each; installation assumptions stated', () => {
     const { doc, result } = riser();
     const cautions = section(doc, 'cautions').blocks[0]!;

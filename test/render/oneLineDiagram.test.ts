@@ -1,8 +1,8 @@
 /**
  * The one-line drawing shows the solved installation: read back from the SVG,
- * every board is a box under the board that feeds it, every feeder run starts
- * at the middle of the feeding box's bottom edge (the supply symbol for the
- * main board) and ends at the middle of the fed box's top edge, and every
+ * every board is a box below the board that feeds it, every feeder run starts
+ * on the feeding box's bottom edge (the supply symbol for the main board) and
+ * ends on the fed box (top edge in the tree, left edge in the ladder), and every
  * printed current and drop is the solved figure to the digits printed. No two
  * texts overlap; the same installation gives the same text.
  */
@@ -23,6 +23,7 @@ const byClass = (root: Element, tag: string, cls: string): Element[] =>
 const num = (e: Element, a: string) => Number(e.getAttribute(a));
 
 interface Drawn {
+  arrangement: 'tree' | 'ladder';
   boxes: Map<string, { x: number; y: number; w: number; h: number; fedFrom: string }>;
   feeders: Map<string, { points: [number, number][]; labels: string[] }>;
   supply: { x: number; bottom: number };
@@ -31,6 +32,8 @@ interface Drawn {
 
 function readDrawing(svg: string): Drawn {
   const root = parseSvg(svg);
+  const arrangement = root.getAttribute('data-arrangement');
+  if (arrangement !== 'tree' && arrangement !== 'ladder') throw new Error(`unknown arrangement ${arrangement}`);
   const boxes = new Map<string, { x: number; y: number; w: number; h: number; fedFrom: string }>();
   for (const g of byClass(root, 'g', 'board')) {
     const r = g.getElementsByTagName('rect')[0]!;
@@ -47,7 +50,7 @@ function readDrawing(svg: string): Drawn {
   }
   const s = byClass(root, 'g', 'supply')[0]!;
   const texts = byClass(root, 'text', 'tree-text').map((t) => ({ text: t.textContent ?? '', x: num(t, 'x'), y: num(t, 'y'), size: num(t, 'font-size') }));
-  return { boxes, feeders, supply: { x: num(s, 'data-x'), bottom: num(s, 'data-bottom') }, texts };
+  return { arrangement, boxes, feeders, supply: { x: num(s, 'data-x'), bottom: num(s, 'data-bottom') }, texts };
 }
 
 /** A printed figure agrees with the solved one to half a unit in its last printed digit. */
@@ -66,15 +69,20 @@ function checkDrawing(svg: string, result: InstallationResult): void {
     const run = d.feeders.get(b.name)!;
     const start = run.points[0]!;
     const end = run.points[run.points.length - 1]!;
-    // Ends at the middle of this board's top edge.
-    expect(end[0]).toBeCloseTo(box.x + box.w / 2, 1);
-    expect(end[1]).toBeCloseTo(box.y, 1);
+    // Ends on this board's box: the middle of its top edge (tree; the ladder's main board too), or of its left edge (ladder).
+    const onTop = Math.abs(end[1] - box.y) < 0.01 && end[0] > box.x && end[0] < box.x + box.w;
+    const onLeft = Math.abs(end[0] - box.x) < 0.01 && Math.abs(end[1] - (box.y + box.h / 2)) < 0.01;
+    if (d.arrangement === 'tree') expect(end[0]).toBeCloseTo(box.x + box.w / 2, 1);
+    expect(onTop || (d.arrangement === 'ladder' && onLeft), `${b.name}: run ends on its box`).toBe(true);
     if (b.fedFrom === null) {
       expect(start).toEqual([d.supply.x, d.supply.bottom]);
     } else {
+      // Starts on the feeding board's bottom edge (its middle in the tree).
       const parent = d.boxes.get(b.fedFrom)!;
-      expect(start[0]).toBeCloseTo(parent.x + parent.w / 2, 1);
       expect(start[1]).toBeCloseTo(parent.y + parent.h, 1);
+      expect(start[0]).toBeGreaterThan(parent.x);
+      expect(start[0]).toBeLessThan(parent.x + parent.w);
+      if (d.arrangement === 'tree') expect(start[0]).toBeCloseTo(parent.x + parent.w / 2, 1);
       expect(box.y).toBeGreaterThan(parent.y + parent.h);
     }
     // Runs are orthogonal: every segment horizontal or vertical.
@@ -102,6 +110,16 @@ function checkDrawing(svg: string, result: InstallationResult): void {
     }),
   );
   expect(clashes).toEqual([]);
+  // No run crosses a text (runs are horizontal or vertical segments).
+  const crossings: string[] = [];
+  for (const [name, run] of d.feeders)
+    run.points.slice(1).forEach((q, k) => {
+      const p = run.points[k]!;
+      const [x0, x1] = [Math.min(p[0], q[0]), Math.max(p[0], q[0])];
+      const [y0, y1] = [Math.min(p[1], q[1]), Math.max(p[1], q[1])];
+      for (const t of tb) if (x1 > t.left + 0.5 && x0 < t.right - 0.5 && y1 > t.top + 0.5 && y0 < t.bottom - 0.5) crossings.push(`run to ${name} / "${t.text}"`);
+    });
+  expect(crossings).toEqual([]);
   // Everything inside the drawing.
   const root = parseSvg(svg);
   const width = num(root, 'width');
@@ -123,6 +141,30 @@ describe('one-line drawing of an installation', () => {
     // The lowest voltage is marked on its board (Floor 4, 96.9 %).
     expect(result.totals.lowestVoltageBoard).toBe('Floor 4');
     expect(svg).toMatch(/V 96\.9–99\.7 %nom · lowest/);
+  });
+
+  it('a wide installation (more than three end boards) is drawn as a ladder, every check holding', () => {
+    const spec = riserSpec();
+    const wide = {
+      ...spec,
+      boards: [
+        ...spec.boards,
+        ...['Bike store', 'Bin store', 'Gym'].map((name, k) => ({ name, fedFrom: 'Main switchboard', feeder: { lengthM: 20 + 15 * k, line: { mm2: 10 }, neutral: { mm2: 10 } }, loads: [{ name: `${name} heater`, connection: (['A-N', 'B-N', 'C-N'] as const)[k]!, kW: 2 + k }] })),
+      ],
+    };
+    const result = solveInstallation(wide);
+    const svg = renderOneLineDiagram(result);
+    expect(readDrawing(svg).arrangement).toBe('ladder');
+    checkDrawing(svg, result);
+    // One board per row, each fed board indented one step right of its feeder; it stays portrait.
+    const d = readDrawing(svg);
+    const main = d.boxes.get('Main switchboard')!;
+    expect(d.boxes.get('Gym')!.x - main.x).toBe(ONE_LINE_LAYOUT.indent);
+    expect(d.boxes.get('Floor 4')!.x - main.x).toBe(4 * ONE_LINE_LAYOUT.indent);
+    expect(new Set([...d.boxes.values()].map((b) => b.y)).size).toBe(result.boards.length);
+    expect(Number(parseSvg(svg).getAttribute('width'))).toBeLessThan(800);
+    // The riser itself (two end boards) stays a tree.
+    expect(readDrawing(renderOneLineDiagram(solveInstallation(spec))).arrangement).toBe('tree');
   });
 
   it('is the same text for the same installation, solved twice', () => {

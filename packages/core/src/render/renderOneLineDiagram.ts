@@ -1,15 +1,12 @@
 /**
- * The one-line drawing of a solved installation as SVG text: the supply at the
- * top, every board as a box under the board that feeds it, and every feeder as
- * an orthogonal run from the feeding board's bottom edge to the fed board's top
- * edge, labelled with its line and neutral currents and its voltage drop.
- *
- * Layout is a plain tidy tree: each board owns a column band as wide as its
- * leaves; a board sits centred over its children. A feeder's label sits in the
- * fed board's own band, below the feeding board's bus run, so no two labels can
- * meet and none can cross another feeder.
+ * The one-line drawing of a solved installation as SVG text: the supply, every
+ * board as a box and every feeder as an orthogonal run from the feeding board
+ * to the board it feeds, labelled with its line and neutral currents and its
+ * voltage drop. Where each piece goes is oneLineLayout.ts's job (a tree while
+ * the installation is narrow, a ladder when it is wide); this file draws.
  */
-import type { InstallationResult, FeederReading, InstallationBoardResult } from '../analysis/installationResult.js';
+import type { InstallationResult, FeederReading } from '../analysis/installationResult.js';
+import { layOutOneLine, SUPPLY_HALF_HEIGHT } from './oneLineLayout.js';
 import { INK, MUTED_INK, GRID_COLOUR } from './palette.js';
 import { attrs, coord, escapeXml, fixed, sig3 } from './svgText.js';
 import { GLYPH_WIDTH_EM } from './labelPlacement.js';
@@ -19,7 +16,7 @@ export interface OneLineDiagramOptions {
   readonly title?: string;
   /** Up to two short lines beside the supply symbol. @defaultValue voltage and frequency, and the transformer's rating */
   readonly supplyLines?: readonly string[];
-  /** How a phase is named in labels (e.g. `L1` for `A`). @defaultValue the phase id */
+  /** How a phase is named in labels (e.g. `L1` for `A`). @defaultValue the main board's naming (`conventions.phaseLabels`) */
   readonly phaseName?: (phase: string) => string;
 }
 
@@ -28,28 +25,25 @@ export const ONE_LINE_LAYOUT = {
   column: 236,
   boxWidth: 204,
   boxHeight: 52,
-  /** Vertical distance from one row's box top to the next row's box top. */
+  /** Tree: from one row's box top to the next row's box top. */
   rowPitch: 116,
-  /** The bus run sits this far below the feeding board. */
+  /** Tree: the bus run sits this far below the feeding board. */
   busDrop: 14,
   margin: 20,
   top: 58,
   sourceHeight: 84,
   minWidth: 560,
+  indent: 30,
+  stub: 14,
+  ladderPitch: 68,
+  /** Up to three boards that feed no other (a tree about 900 px wide) stay a tree; wider trees become a ladder. */
+  treeMaxLeaves: 3,
   labelFont: 10.5,
   nameFont: 12,
   detailFont: 10.5,
 } as const;
 
 const L = ONE_LINE_LAYOUT;
-
-interface Placed {
-  readonly board: InstallationBoardResult;
-  readonly feeder: FeederReading;
-  readonly cx: number;
-  readonly top: number;
-  readonly depth: number;
-}
 
 /** Words in lines no wider than `widthPx` (estimated as the label placer does). */
 function wrapToWidth(words: string, widthPx: number, fontSize: number): string[] {
@@ -75,30 +69,6 @@ function fit(text: string, widthPx: number, fontSize: number): string {
 const text = (x: number, y: number, size: number, content: string, extra: Readonly<Record<string, string | number>> = {}) =>
   `<text${attrs({ class: 'tree-text', x, y, 'font-size': size, fill: INK, ...extra })}>${escapeXml(content)}</text>`;
 
-/** Column bands: each board's centre x and depth; leaves take one column each, in feeding order. */
-function placeBoards(result: InstallationResult): Placed[] {
-  const children = new Map<string | null, InstallationBoardResult[]>();
-  for (const b of result.boards) children.set(b.fedFrom, [...(children.get(b.fedFrom) ?? []), b]);
-  const feederOf = new Map(result.feeders.map((f) => [f.board, f]));
-  const out: Placed[] = [];
-  let nextLeaf = 0;
-  const visit = (b: InstallationBoardResult, depth: number): number => {
-    const kids = children.get(b.name) ?? [];
-    let cx: number;
-    if (kids.length === 0) cx = L.margin + (nextLeaf++ + 0.5) * L.column;
-    else {
-      const xs = kids.map((k) => visit(k, depth + 1));
-      cx = (xs[0]! + xs[xs.length - 1]!) / 2;
-    }
-    out.push({ board: b, feeder: feederOf.get(b.name)!, cx, top: L.top + L.sourceHeight + depth * L.rowPitch, depth });
-    return cx;
-  };
-  for (const root of children.get(null) ?? []) visit(root, 0);
-  // Back to feeding order (the order of result.boards), so the drawing reads like the tables.
-  const order = new Map(result.boards.map((b, k) => [b.name, k]));
-  return out.sort((a, b) => order.get(a.board.name)! - order.get(b.board.name)!);
-}
-
 /** The feeder's label lines: line currents, then neutral current and drop. */
 function feederLines(f: FeederReading, phaseName: (p: string) => string): string[] {
   const currents = `${f.lines.map((l) => `${phaseName(l.phase)} ${sig3(l.current.magnitude)}`).join(' · ')} A`;
@@ -119,14 +89,11 @@ function strokeFor(f: FeederReading, largest: number): number {
  * const svg = renderOneLineDiagram(solveInstallation(installationFile));
  */
 export function renderOneLineDiagram(result: InstallationResult, options: OneLineDiagramOptions = {}): string {
-  const phaseName = options.phaseName ?? ((p: string) => p);
-  const placed = placeBoards(result);
-  const byName = new Map(placed.map((p) => [p.board.name, p]));
-  const leaves = placed.filter((p) => !placed.some((q) => q.board.fedFrom === p.board.name)).length;
-  const maxDepth = Math.max(...placed.map((p) => p.depth));
-  // Half a band more on the right: the last board's feeder label sits right of its run.
-  const width = Math.max(L.minWidth, 2 * L.margin + (leaves + 0.5) * L.column);
-  const legendTop = L.top + L.sourceHeight + maxDepth * L.rowPitch + L.boxHeight + 28;
+  const labels = result.boards[0]!.result.conventions.phaseLabels as Readonly<Record<string, string>>;
+  const phaseName = options.phaseName ?? ((p: string) => labels[p] ?? p);
+  const layout = layOutOneLine(result, L);
+  const { width } = layout;
+  const legendTop = layout.bottom + 28;
   const legendWidth = width - 2 * L.margin;
   const legend = wrapToWidth(
     'Feeder labels: line currents, then the neutral current and the largest drop along the feeder (% of nominal line-to-neutral voltage); thicker runs carry more current. Box: the board, the range of its phase voltages (% of nominal), its own load; the heaviest outline marks the lowest voltage in the installation.',
@@ -138,9 +105,7 @@ export function renderOneLineDiagram(result: InstallationResult, options: OneLin
 
   const parts: string[] = [];
   // The supply: two overlapping rings (a transformer) or one ring with a wave (an ideal source).
-  const main = placed.find((p) => p.board.fedFrom === null)!;
-  const sx = main.cx;
-  const sy = L.top + 16;
+  const { x: sx, y: sy } = layout.supply;
   const first = result.boards[0]!.result;
   const hasTransformer = first.transformer !== null;
   const source = hasTransformer
@@ -152,32 +117,16 @@ export function renderOneLineDiagram(result: InstallationResult, options: OneLin
   const supplyLines = (options.supplyLines ?? [`Supply ${volts} · ${b.frequencyHz} Hz`, ...transformerLine]).slice(0, 2);
   const supplyTextWidth = width - (sx + 24) - L.margin;
   parts.push(
-    `<g${attrs({ class: 'supply', 'data-x': sx, 'data-bottom': sy + 19 })}>${source}${supplyLines
+    `<g${attrs({ class: 'supply', 'data-x': sx, 'data-bottom': sy + SUPPLY_HALF_HEIGHT })}>${source}${supplyLines
       .map((line, k) => text(sx + 24, sy - 2 + k * 14, k === 0 ? 11.5 : 10.5, fit(line, supplyTextWidth, k === 0 ? 11.5 : 10.5), k === 0 ? { 'font-weight': 'bold' } : { fill: MUTED_INK }))
       .join('')}</g>`,
   );
 
   // Feeders first, so boxes are drawn over their ends.
-  for (const p of placed) {
-    const parent = p.board.fedFrom === null ? null : byName.get(p.board.fedFrom)!;
-    const startX = parent ? parent.cx : sx;
-    const startY = parent ? parent.top + L.boxHeight : sy + 19;
-    const busY = parent ? startY + L.busDrop : startY + (p.top - startY) / 2;
-    const points = [
-      [startX, startY],
-      [startX, busY],
-      [p.cx, busY],
-      [p.cx, p.top],
-    ]
-      .filter((pt, k, all) => k === 0 || pt[0] !== all[k - 1]![0] || pt[1] !== all[k - 1]![1])
-      .map(([x, y]) => `${coord(x!)},${coord(y!)}`)
-      .join(' ');
-    const f = p.feeder;
+  for (const p of layout.boards) {
+    const points = p.run.map(([x, y]) => `${coord(x)},${coord(y)}`).join(' ');
+    const f = result.feeders.find((x) => x.board === p.board.name)!;
     const lines = feederLines(f, phaseName);
-    const labelX = p.cx + 7;
-    // Up to the next band's run, with a gap: the label never reaches another feeder.
-    const labelWidth = L.column - 16;
-    const labelTop = parent ? busY + 15 : busY - 6;
     parts.push(
       `<g${attrs({
         class: 'feeder',
@@ -187,15 +136,15 @@ export function renderOneLineDiagram(result: InstallationResult, options: OneLin
         'data-drop-percent': fixed(f.voltageDropPercent, 2),
       })}>` +
         `<polyline${attrs({ points, fill: 'none', stroke: INK, 'stroke-width': strokeFor(f, largest), 'stroke-linejoin': 'round' })}/>` +
-        lines.map((line, k) => text(labelX, labelTop + k * 13, L.labelFont, fit(line, labelWidth, L.labelFont), { class: 'tree-text feeder-label' })).join('') +
+        lines.map((line, k) => text(p.label.x, p.label.y + k * 13, L.labelFont, fit(line, p.label.width, L.labelFont), { class: 'tree-text feeder-label' })).join('') +
         `</g>`,
     );
   }
 
   const lowest = result.totals.lowestVoltageBoard;
-  for (const p of placed) {
+  for (const p of layout.boards) {
     const r = p.board.result;
-    const x = p.cx - L.boxWidth / 2;
+    const x = p.x;
     const percents = r.phases.map((ph) => ph.voltagePercent);
     const lo = Math.min(...percents);
     const hi = Math.max(...percents);
@@ -220,7 +169,7 @@ export function renderOneLineDiagram(result: InstallationResult, options: OneLin
 
   const title = options.title ?? 'One-line drawing of the installation';
   return (
-    `<svg xmlns="http://www.w3.org/2000/svg"${attrs({ viewBox: `0 0 ${coord(width)} ${coord(height)}`, width, height, 'font-family': 'DejaVu Sans, Liberation Sans, Arial, sans-serif', role: 'img', 'data-view': 'one-line' })}>` +
+    `<svg xmlns="http://www.w3.org/2000/svg"${attrs({ viewBox: `0 0 ${coord(width)} ${coord(height)}`, width, height, 'font-family': 'DejaVu Sans, Liberation Sans, Arial, sans-serif', role: 'img', 'data-view': 'one-line', 'data-arrangement': layout.arrangement })}>` +
     `<title>${escapeXml(`${title}: ${result.installation.name}`)}</title>` +
     `<rect${attrs({ x: 0, y: 0, width, height, fill: '#FFFFFF' })}/>` +
     text(16, 22, 15, fit(title, width - 32, 15), { 'font-weight': 'bold' }) +

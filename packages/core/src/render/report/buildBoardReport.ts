@@ -98,7 +98,7 @@ export function buildBoardReport(input: BoardReportInput): ReportDocument {
     if (resonance) sections.push(resonance);
   }
   if (input.harmonics) placeSection(sections, harmonicsSection(input.harmonics));
-  if (input.handCheck) placeSection(sections, handCheckSection(input.handCheck.result, input.handCheck.triangles));
+  if (input.handCheck) placeSection(sections, handCheckSection(input.handCheck.result, input.handCheck.triangles, result.conventions.phaseNames));
   for (const extra of input.studySections ?? []) placeSection(sections, extra);
   sections.push(...closingSections({ results: [result], correction, harmonics: input.harmonics ?? null, handCheck: input.handCheck?.result ?? null }));
   return {

@@ -86,7 +86,7 @@ export function correctionSection(report: CorrectionReport): ReportSection {
       { label: 'PF after', align: 'right' },
     ],
     rows: v.lines.map((l) => [
-      l.phase,
+      report.verification.before.conventions.phaseLabels[l.phase],
       fixed(l.currentA.before, 1),
       fixed(l.currentA.after, 1),
       `${fixed(l.activeCurrentA.before, 1)} → ${fixed(l.activeCurrentA.after, 1)}`,

@@ -7,6 +7,10 @@ import type { HandCheckResult } from '../../handCheck/handCheckResult.js';
 import type { PowerFactorSense } from '../../analysis/boardResult.js';
 import { fixed } from '../svgText.js';
 import type { ReportBlock, ReportColumn, ReportSection } from './reportDocument.js';
+import { labelIn, type PhaseNaming } from '../../board/conventions/phaseNames.js';
+
+/** A phase, line pair or branch in the board's naming. */
+type Label = (term: string) => string;
 
 const num = (label: string): ReportColumn => ({ label, align: 'right' });
 const orDash = (x: number | null, d: number): string => (x === null ? '—' : fixed(x, d));
@@ -17,17 +21,17 @@ const signed = (x: number, d: number): string => {
   return /^0\.?0*$/.test(s) ? s : x > 0 ? `+${s}` : s;
 };
 
-function capacitorTable(r: HandCheckResult): ReportBlock {
+function capacitorTable(r: HandCheckResult, label: Label): ReportBlock {
   return {
     kind: 'table',
     caption: 'Your capacitors: counted by hand and as they run on the board',
     columns: [{ label: 'Branch' }, num('kvar by hand'), num('µF'), num('V nominal'), num('V solved'), num('kvar solved')],
-    rows: r.capacitors.map((c) => [c.branch, fixed(c.handKvar, 2), fixed(c.capacitanceUF, 1), fixed(c.nominalV, 1), fixed(c.appliedV, 1), fixed(c.kvarAtAppliedV, 2)]),
+    rows: r.capacitors.map((c) => [label(c.branch), fixed(c.handKvar, 2), fixed(c.capacitanceUF, 1), fixed(c.nominalV, 1), fixed(c.appliedV, 1), fixed(c.kvarAtAppliedV, 2)]),
     note: 'A capacitor gives Q = ωCV²: at the solved voltage its output differs from the figure counted at nominal voltage.',
   };
 }
 
-function workingTable(r: HandCheckResult): ReportBlock {
+function workingTable(r: HandCheckResult, label: Label): ReportBlock {
   const target = r.targetPf;
   const v = r.textbook[0]?.voltageV ?? r.board.nominalLineToNeutralV;
   return {
@@ -46,7 +50,7 @@ function workingTable(r: HandCheckResult): ReportBlock {
       num('PF2'),
     ],
     rows: r.textbook.map((p) => [
-      p.phase,
+      label(p.phase),
       fixed(p.kW, 2),
       fixed(p.kvarBefore, 2),
       orDash(p.tanBefore, 3),
@@ -61,13 +65,13 @@ function workingTable(r: HandCheckResult): ReportBlock {
   };
 }
 
-function triangleTable(r: HandCheckResult): ReportBlock {
+function triangleTable(r: HandCheckResult, label: Label): ReportBlock {
   return {
     kind: 'table',
     caption: 'Current triangle of each phase, before → after your capacitors',
     columns: [{ label: 'Phase' }, num('Active A = P/V'), num('Reactive A = Q/V'), num('Line A = √(a² + r²)')],
     rows: r.textbook.map((p) => [
-      p.phase,
+      label(p.phase),
       fixed(p.activeCurrentA, 1),
       `${fixed(p.reactiveCurrentBeforeA, 1)} → ${fixed(p.reactiveCurrentAfterA, 1)}`,
       `${fixed(p.currentBeforeA, 1)} → ${fixed(p.currentAfterA, 1)}`,
@@ -75,11 +79,11 @@ function triangleTable(r: HandCheckResult): ReportBlock {
   };
 }
 
-function comparedTable(r: HandCheckResult): ReportBlock {
+function comparedTable(r: HandCheckResult, label: Label): ReportBlock {
   const rows: string[][] = [];
   for (const l of r.lines) {
-    rows.push([l.phase, 'current A', orDash(l.currentA.yours, 1), fixed(l.currentA.textbook, 1), fixed(l.currentA.solved, 1), signed(l.currentA.difference, 1)]);
-    rows.push([l.phase, 'PF', orDash(l.pf.yours, 3), `${fixed(l.pf.textbook, 3)}${senseWord(l.senseTextbook)}`, `${fixed(l.pf.solved, 3)}${senseWord(l.senseSolved)}`, signed(l.pf.difference, 3)]);
+    rows.push([label(l.phase), 'current A', orDash(l.currentA.yours, 1), fixed(l.currentA.textbook, 1), fixed(l.currentA.solved, 1), signed(l.currentA.difference, 1)]);
+    rows.push([label(l.phase), 'PF', orDash(l.pf.yours, 3), `${fixed(l.pf.textbook, 3)}${senseWord(l.senseTextbook)}`, `${fixed(l.pf.solved, 3)}${senseWord(l.senseSolved)}`, signed(l.pf.difference, 3)]);
   }
   if (r.neutralA) rows.push(['N', 'current A', orDash(r.neutralA.yours, 1), fixed(r.neutralA.textbook, 1), fixed(r.neutralA.solved, 1), signed(r.neutralA.difference, 1)]);
   rows.push(['board', 'PF (vector)', orDash(r.boardPf.yours, 3), fixed(r.boardPf.textbook, 3), fixed(r.boardPf.solved, 3), signed(r.boardPf.difference, 3)]);
@@ -116,8 +120,8 @@ export function handCheckEffectRows(r: HandCheckResult): string[][] {
   ];
 }
 
-function effectsTable(r: HandCheckResult): ReportBlock {
-  const phases = r.lines.map((l) => l.phase);
+function effectsTable(r: HandCheckResult, label: Label): ReportBlock {
+  const phases = r.lines.map((l) => label(l.phase));
   return {
     kind: 'table',
     caption: 'Where each difference comes from',
@@ -130,18 +134,20 @@ function effectsTable(r: HandCheckResult): ReportBlock {
 /**
  * The check of a hand calculation as a report section (id `hand-check`).
  * @param triangles optional drawing of the line current triangles without and with the user's capacitors
+ * @param naming the board's phase naming (`result.conventions.phaseNames`) @defaultValue 'A/B/C'
  */
-export function handCheckSection(r: HandCheckResult, triangles?: string): ReportSection {
+export function handCheckSection(r: HandCheckResult, triangles?: string, naming: PhaseNaming = 'A/B/C'): ReportSection {
+  const label: Label = (term) => labelIn(naming, term);
   const blocks: ReportBlock[] = [
     {
       kind: 'paragraph',
       text: `The capacitors of your hand calculation were added to ${r.board.name} and the board solved again${r.targetPf !== null ? `; your target power factor is ${fixed(r.targetPf, 2)}` : ''}.`,
     },
-    capacitorTable(r),
-    workingTable(r),
-    triangleTable(r),
-    comparedTable(r),
-    effectsTable(r),
+    capacitorTable(r, label),
+    workingTable(r, label),
+    triangleTable(r, label),
+    comparedTable(r, label),
+    effectsTable(r, label),
     { kind: 'list', items: r.effects.map((e) => `${e.title}: ${e.explanation}`) },
   ];
   if (triangles) blocks.push({ kind: 'figure', name: 'hand-check-triangles', caption: 'Line current triangles without and with your capacitors', svg: triangles });

@@ -9,7 +9,7 @@ import { boardSpecOf } from '../../board/installationRules.js';
 import { fixed } from '../svgText.js';
 import { renderOneLineDiagram } from '../renderOneLineDiagram.js';
 import type { ReportBlock, ReportColumn, ReportSection } from './reportDocument.js';
-import { conductorWords, resultBlocks, scheduleTable, sourceWords, systemFacts, type VoltageBand } from './boardSections.js';
+import { conductorWords, resultBlocks, scheduleTable, sourceWords, systemFacts } from './boardSections.js';
 
 const num = (label: string): ReportColumn => ({ label, align: 'right' });
 
@@ -98,7 +98,7 @@ export function feedersSection(result: InstallationResult): ReportSection {
       {
         kind: 'table',
         caption: 'Currents, loading, voltage drop and losses of every feeder',
-        columns: [{ label: 'To' }, { label: 'From' }, ...phases.map((p) => num(`${p} A`)), ...(hasNeutral ? [num('N A')] : []), num('Loading %'), num('Drop %'), num('Loss kW')],
+        columns: [{ label: 'To' }, { label: 'From' }, ...phases.map((p) => num(`${result.boards[0]!.result.conventions.phaseLabels[p]} A`)), ...(hasNeutral ? [num('N A')] : []), num('Loading %'), num('Drop %'), num('Loss kW')],
         rows: result.feeders.map((f) => [
           f.board,
           f.from ?? 'supply',
@@ -132,7 +132,7 @@ export function totalsSection(result: InstallationResult): ReportSection {
 }
 
 /** One board of the installation: where it is fed from, its panel schedule and its solved figures. */
-export function boardSection(spec: InstallationBaseSpec, result: InstallationResult, board: InstallationBoardResult, id: string, band?: VoltageBand): ReportSection {
+export function boardSection(spec: InstallationBaseSpec, result: InstallationResult, board: InstallationBoardResult, id: string): ReportSection {
   const own = boardSpecOf(spec, specIndex(spec, board.name));
   const feeder = result.feeders.find((f) => f.board === board.name)!;
   const fedBy = board.fedFrom === null ? 'the supply (main board)' : board.fedFrom;
@@ -147,7 +147,7 @@ export function boardSection(spec: InstallationBaseSpec, result: InstallationRes
       ],
     },
     ...(own.loads.length ? [scheduleTable(own.loads, board.result)] : [{ kind: 'paragraph' as const, text: 'No circuits of its own: this board only feeds others.' }]),
-    ...resultBlocks(board.result, { figurePrefix: `${id}-`, sequenceFigure: false, ...(band ? { band } : {}) }),
+    ...resultBlocks(board.result, { figurePrefix: `${id}-`, sequenceFigure: false }),
   ];
   return { id, title: `Board: ${board.name}`, blocks };
 }

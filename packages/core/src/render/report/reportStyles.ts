@@ -41,6 +41,8 @@ footer { margin-top: 2rem; border-top: 1px solid var(--rule); padding-top: .5rem
   h2 { break-after: avoid; }
   figure, tr, dl.facts, ul.tone-caution { break-inside: avoid; }
   figure svg { max-height: 120mm; width: auto; }
+  /* A one-line drawing is tall and its text small: it may take most of a page (A4 text block 269 mm). */
+  figure svg[data-view="one-line"] { max-height: 235mm; }
   .table-wrap { overflow: visible; }
   table { font-size: 8pt; }
   p.table-note, figcaption { font-size: 7.5pt; }
