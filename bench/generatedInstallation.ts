@@ -5,18 +5,9 @@
  * every machine times the same network. Invented data, no real site.
  */
 import type { InstallationSpec } from '../packages/core/src/index.js';
+// The same mulberry32 generator the rebalance search uses, so there is one copy of it.
+import { seededRandom as random } from '../packages/core/src/rebalance/seededRandom.js';
 
-/** mulberry32: a small, well-mixed 32-bit generator, enough for test data. */
-function random(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
 
 export function generatedInstallation(seed: number, boards: number, loads: number): InstallationSpec {
   const r = random(seed);

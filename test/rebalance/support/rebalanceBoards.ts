@@ -7,20 +7,12 @@
 import fc from 'fast-check';
 import type { BoardSpec, ComplexValue, ConnectionSpec, LoadSpec } from '@trivar/core';
 import { C0, c, cAbs, cAdd, cConj, cDiv, cPolarDeg, cScale, cSub, cSum } from '../../support/complexMath.js';
+import { seededRandom } from '../../../packages/core/src/rebalance/seededRandom.js';
 
 export type System = 'three-phase-4wire' | 'three-phase-3wire' | 'split-phase';
 
-/** mulberry32, for boards the benchmark and the MILP test rebuild from a seed. */
-export function seeded(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+/** mulberry32, for boards the benchmark and the MILP test rebuild from a seed (the search's own generator). */
+export const seeded = seededRandom;
 
 export interface BoardRecipe {
   readonly system: System;

@@ -108,8 +108,24 @@ export function conditionScore(f: ConditionFigures, aim: AimWeights): number {
 }
 
 /** Total weight of the conditions (each counted once, however many boards are measured). */
-const conditionWeight = (layouts: readonly ConditionLayout[]) =>
+export const conditionWeight = (layouts: readonly ConditionLayout[]) =>
   layouts.reduce((s, l, k) => (k === 0 || layouts[k - 1]!.condition !== l.condition ? s + l.weight : s), 0);
+
+/** Per-condition scores → the worst condition, or the mean weighted by each condition's weight. */
+export function combineConditionScores(
+  perCondition: ReadonlyMap<number, number>,
+  layouts: readonly ConditionLayout[],
+  totalWeight: number,
+  combine: 'worst' | 'weighted',
+): number {
+  let worst = 0;
+  let mean = 0;
+  for (const [c, s] of perCondition) {
+    worst = Math.max(worst, s);
+    mean += (layouts.find((l) => l.condition === c)!.weight * s) / totalWeight;
+  }
+  return combine === 'worst' ? worst : mean;
+}
 
 /**
  * The built-in score: per condition the weighted figures, added over the measured
@@ -120,13 +136,7 @@ export function builtInObjective(aim: AimWeights, combine: 'worst' | 'weighted',
   return (figures) => {
     const perCondition = new Map<number, number>();
     figures.forEach((f, k) => perCondition.set(layouts[k]!.condition, (perCondition.get(layouts[k]!.condition) ?? 0) + conditionScore(f, aim)));
-    let worst = 0;
-    let mean = 0;
-    for (const [c, s] of perCondition) {
-      worst = Math.max(worst, s);
-      mean += (layouts.find((l) => l.condition === c)!.weight * s) / totalWeight;
-    }
-    return combine === 'worst' ? worst : mean;
+    return combineConditionScores(perCondition, layouts, totalWeight, combine);
   };
 }
 

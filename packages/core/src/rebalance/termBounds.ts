@@ -11,7 +11,7 @@
  * ignored here (a minimum over more placings is still a lower bound).
  */
 import { contributionOffset, type AssignmentProblem } from './assignmentProblem.js';
-import { builtInMagnitudeScore, type AimWeights, type ConditionLayout } from './rebalanceObjective.js';
+import { builtInMagnitudeScore, combineConditionScores, conditionWeight, type AimWeights, type ConditionLayout } from './rebalanceObjective.js';
 
 /** Largest number of placings enumerated for one term (3^11: a few ms). */
 const MAX_PLACINGS = 177_147;
@@ -35,7 +35,7 @@ export function termBoundFor(p: AssignmentProblem, layouts: readonly ConditionLa
     return { layout, rows, slots, placings, score: builtInMagnitudeScore(aim, 'worst', [layout]) };
   });
   if (!terms.some((t) => t.placings <= MAX_PLACINGS)) return null;
-  const totalWeight = layouts.reduce((s, l, k) => (k === 0 || layouts[k - 1]!.condition !== l.condition ? s + l.weight : s), 0);
+  const totalWeight = conditionWeight(layouts);
 
   /** Least value of one term over every placing of its circuits, other magnitudes at their bounds. */
   const exactMinimum = (t: (typeof terms)[number], bounds: Float64Array): number => {
@@ -77,12 +77,6 @@ export function termBoundFor(p: AssignmentProblem, layouts: readonly ConditionLa
       const value = t.placings <= MAX_PLACINGS ? Math.max(polygon, exactMinimum(t, bounds)) : polygon;
       perCondition.set(t.layout.condition, (perCondition.get(t.layout.condition) ?? 0) + value);
     }
-    let worst = 0;
-    let mean = 0;
-    for (const [c, s] of perCondition) {
-      worst = Math.max(worst, s);
-      mean += (layouts.find((l) => l.condition === c)!.weight * s) / totalWeight;
-    }
-    return combine === 'worst' ? worst : mean;
+    return combineConditionScores(perCondition, layouts, totalWeight, combine);
   };
 }
