@@ -1,5 +1,5 @@
 /** HarmonicsReport → the human-readable report of `trivar harmonics`. */
-import { conditionWords, type DistortionReading, type HarmonicsReport, type ResonanceScan, type CapacitorDuty, type TddCheck, type NeutralCheck } from '@trivar/core';
+import { conditionWords, labelIn, type DistortionReading, type HarmonicsReport, type ResonanceScan, type CapacitorDuty, type TddCheck, type NeutralCheck } from '@trivar/core';
 import { fixed, renderTable, section } from './textTable.js';
 import { wrapText } from './wrapText.js';
 
@@ -15,9 +15,14 @@ const orderPercent = (d: DistortionReading, h: number) => {
   return o ? fixed(o.percentOfFundamental, 1) : '';
 };
 
+/** A phase, pair or branch as the board file names it (L1-N or A-N). */
+type Label = (term: string) => string;
+const labeller = (r: HarmonicsReport): Label => (term) => labelIn(r.phaseNames, term);
+
 function currentTable(r: HarmonicsReport): string {
+  const label = labeller(r);
   const shown = r.orders.slice(0, MAX_ORDER_COLUMNS);
-  const rows = r.lines.map((l) => [l.phase, fixed(l.current.rms, 1), fixed(l.current.fundamental, 1), thd(l.current), ...shown.map((h) => orderPercent(l.current, h))]);
+  const rows = r.lines.map((l) => [label(l.phase), fixed(l.current.rms, 1), fixed(l.current.fundamental, 1), thd(l.current), ...shown.map((h) => orderPercent(l.current, h))]);
   if (r.neutral) rows.push(['N', fixed(r.neutral.current.rms, 1), fixed(r.neutral.current.fundamental, 1), '', ...shown.map((h) => orderPercent(r.neutral!.current, h))]);
   const notes = [
     ...(r.neutral ? ['  N row: orders as % of the neutral’s own fundamental current'] : []),
@@ -33,9 +38,10 @@ function currentTable(r: HarmonicsReport): string {
 }
 
 function voltageTable(r: HarmonicsReport): string {
+  const label = labeller(r);
   const rows = [
-    ...r.lines.map((l) => [`${l.phase}-N`, fixed(l.voltage.rms, 1), thd(l.voltage), largestOrder(l.voltage), l.truePf === null ? '-' : fixed(l.truePf, 3), l.displacementPf === null ? '-' : fixed(l.displacementPf, 3)]),
-    ...r.lineToLine.map((p) => [p.pair, fixed(p.voltage.rms, 1), thd(p.voltage), largestOrder(p.voltage), '', '']),
+    ...r.lines.map((l) => [label(`${l.phase}-N`), fixed(l.voltage.rms, 1), thd(l.voltage), largestOrder(l.voltage), l.truePf === null ? '-' : fixed(l.truePf, 3), l.displacementPf === null ? '-' : fixed(l.displacementPf, 3)]),
+    ...r.lineToLine.map((p) => [label(p.pair), fixed(p.voltage.rms, 1), thd(p.voltage), largestOrder(p.voltage), '', '']),
   ];
   return renderTable(
     [{ header: 'at board', align: 'left' }, { header: 'rms V' }, { header: 'THD %' }, { header: 'largest', align: 'left' }, { header: 'true PF' }, { header: 'displ. PF' }],
@@ -59,20 +65,20 @@ function neutralLines(n: NeutralCheck): string[] {
   return lines;
 }
 
-function tddLines(t: TddCheck): string[] {
+function tddLines(t: TddCheck, label: Label): string[] {
   const head = prose(`I_sc/I_L = ${fixed(t.shortCircuitRatio, 1)} (${t.shortCircuitRatioFrom}), I_L = ${fixed(t.demandCurrentA, 1)} A (${t.demandCurrentFrom}); table row ${t.tableRow}, TDD limit ${t.tddLimitPercent} %`);
   const table = renderTable(
     [{ header: 'line', align: 'left' }, { header: 'TDD %' }, { header: 'limit %' }, { header: 'orders over their limit', align: 'left' }, { header: 'verdict', align: 'left' }],
     t.lines.map((l) => {
       const over = l.orders.filter((o) => !o.ok).map((o) => `h${o.order} ${fixed(o.percentOfDemand, 1)}/${o.limitPercent}`);
-      return [l.phase, fixed(l.tddPercent, 1), fixed(t.tddLimitPercent, 1), over.join(', ') || '-', l.ok ? 'within' : 'EXCEEDS'];
+      return [label(l.phase), fixed(l.tddPercent, 1), fixed(t.tddLimitPercent, 1), over.join(', ') || '-', l.ok ? 'within' : 'EXCEEDS'];
     }),
   );
   return [head, table, prose(`source: ${t.source}`)];
 }
 
 /** Bank states with the same output resonate alike: one row per output, listing the states. */
-function scanTable(s: ResonanceScan): string {
+function scanTable(s: ResonanceScan, label: Label): string {
   const groups = new Map<string, { labels: string[]; c: ResonanceScan['combinations'][number] }>();
   for (const c of s.combinations) {
     const key = fixed(c.capacitorKvar, 2);
@@ -88,7 +94,7 @@ function scanTable(s: ResonanceScan): string {
       fixed(c.capacitorKvar, 1),
       c.formulaOrder === null ? '-' : fixed(c.formulaOrder, 2),
       orders.join(' ') || 'none',
-      main ? `${fixed(main.impedanceOhm, 3)} (${main.pair})` : '-',
+      main ? `${fixed(main.impedanceOhm, 3)} (${label(main.pair)})` : '-',
       c.nearOrders.length ? c.nearOrders.join(', ') : '-',
     ];
   });
@@ -105,7 +111,7 @@ function scanTable(s: ResonanceScan): string {
   );
 }
 
-function dutyLines(d: CapacitorDuty): string[] {
+function dutyLines(d: CapacitorDuty, label: Label): string[] {
   const lim = d.limits;
   const w = d.worst.figures;
   const cell = (x: number, limit: number | null) => `${fixed(x, 2)}${limit === null ? '' : ` / ${limit}`}`;
@@ -115,8 +121,8 @@ function dutyLines(d: CapacitorDuty): string[] {
     renderTable(
       [{ header: 'worst state', align: 'left' }, { header: 'branch', align: 'left' }, { header: 'V rms pu' }, { header: 'V peak pu' }, { header: 'I rms pu' }, { header: 'kvar pu' }, { header: 'verdict', align: 'left' }],
       [
-        [`${d.worstNominal.label} (design)`, d.worstNominal.branch, ...dutyCells(d.worstNominal.figures), d.worstNominal.ok ? 'within' : 'EXCEEDS'],
-        [d.worst.label, d.worst.branch, ...dutyCells(w), d.ok ? 'within limits everywhere' : 'EXCEEDS'],
+        [`${d.worstNominal.label} (design)`, label(d.worstNominal.branch), ...dutyCells(d.worstNominal.figures), d.worstNominal.ok ? 'within' : 'EXCEEDS'],
+        [d.worst.label, label(d.worst.branch), ...dutyCells(w), d.ok ? 'within limits everywhere' : 'EXCEEDS'],
       ],
     ),
     prose(
@@ -139,7 +145,7 @@ export function renderHarmonicsReport(r: HarmonicsReport): string {
     prose(`board: true PF ${r.powerFactor.true === null ? '-' : fixed(r.powerFactor.true, 3)}, displacement PF ${r.powerFactor.displacement === null ? '-' : fixed(r.powerFactor.displacement, 3)} (ΣP / Σ V·I over the lines)`),
   );
   const v = r.voltageDistortion;
-  const overBuses = v.buses.filter((b) => !b.ok).map((b) => b.bus);
+  const overBuses = v.buses.filter((b) => !b.ok).map((b) => labeller(r)(b.bus));
   out.push(prose(`IEEE 519 voltage limits at ≤ 1 kV (${v.individualLimitPercent} % one order, ${v.thdLimitPercent} % THD): ${v.ok ? 'within on every bus voltage' : `EXCEEDED on ${overBuses.join(', ')} (see warnings)`}`));
   if (r.neutral) {
     out.push(section('Neutral conductor'));
@@ -147,14 +153,14 @@ export function renderHarmonicsReport(r: HarmonicsReport): string {
   }
   if (r.tdd) {
     out.push(section('Current distortion at the feed (IEEE 519)'));
-    out.push(...tddLines(r.tdd));
+    out.push(...tddLines(r.tdd, labeller(r)));
   }
   out.push(section(`Resonance with the supply${r.scan.shortCircuitKVA === null ? ' (ideal source: none possible)' : ` (S_sc ${fixed(r.scan.shortCircuitKVA, 0)} kVA)`}`));
-  out.push(scanTable(r.scan));
-  out.push(prose(`scanned h = ${r.scan.orders[0]} … ${r.scan.orders.at(-1)} (${r.scan.orders.length} points, pairs ${r.scan.pairs.join(' ')}); checked against ${r.scan.checkedOrdersFrom}: ${r.scan.checkedOrders.join(', ')}`));
+  out.push(scanTable(r.scan, labeller(r)));
+  out.push(prose(`scanned h = ${r.scan.orders[0]} … ${r.scan.orders.at(-1)} (${r.scan.orders.length} points, pairs ${r.scan.pairs.map(labeller(r)).join(' ')}); checked against ${r.scan.checkedOrdersFrom}: ${r.scan.checkedOrders.join(', ')}`));
   if (r.capacitorDuty) {
     out.push(section('Capacitor duty with harmonics (every bank state)'));
-    out.push(...dutyLines(r.capacitorDuty));
+    out.push(...dutyLines(r.capacitorDuty, labeller(r)));
   }
   if (r.spectra.length) {
     out.push(section('Spectra used'));

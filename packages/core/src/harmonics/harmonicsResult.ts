@@ -3,6 +3,7 @@
  * the library and `trivar harmonics --json`.
  */
 import type { PhaseId } from '../board/boardModel.js';
+import type { PhaseNaming } from '../board/conventions/phaseNames.js';
 
 /** One harmonic order of a quantity. */
 export interface OrderReading {
@@ -207,6 +208,8 @@ export interface LoadSpectrumNote {
 
 export interface HarmonicsReport {
   readonly board: string;
+  /** How the board names its phases ("A/B/C" or "L1/L2/L3"): labels in warnings follow it; data keys stay A/B/C. */
+  readonly phaseNames: PhaseNaming;
   readonly frequencyHz: number;
   /** Orders solved (≥ 2). */
   readonly orders: readonly number[];

@@ -23,6 +23,7 @@ import { harmonicsCautions, harmonicsWarningText, NEUTRAL_PRACTICE } from './har
 import type { CapacitorDuty, DutyCase, HarmonicLineReading, HarmonicsReport, HarmonicsWarning, NeutralCheck, ResonanceScan, TddCheck } from './harmonicsResult.js';
 import { conventionsOf } from '../board/conventions/boardConventions.js';
 import { regionWords } from '../board/conventions/regionWords.js';
+import { labelIn } from '../board/conventions/phaseNames.js';
 
 export interface HarmonicsOptions {
   /** Passed to the fundamental solve. @defaultValue solver defaults */
@@ -185,6 +186,9 @@ export function analyseHarmonics(board: Board, model: HarmonicModel, options: Ha
   const tdd = tddCheck(board, model, lines);
   const scan = scanResonance(fundamental, model, { ...checkedOrders(model), ...(options.scanOrders ? { grid: options.scanOrders } : {}) });
   const duty = capacitorDuty(board, model, options.solve);
+  const phaseNames = conventionsOf(board).phaseNames;
+  // Warnings name phases, pairs and branches the way the board file does (L1-N or A-N).
+  const label = (term: string) => labelIn(phaseNames, term);
   const warnings: HarmonicsWarning[] = [];
   const warn = (code: string, message: string, value: number | null = null, threshold: number | null = null) => warnings.push({ code, message, value, threshold });
   if (scan.shortCircuitKVA === null) warn('ideal-source', harmonicsWarningText.idealSource);
@@ -194,11 +198,11 @@ export function analyseHarmonics(board: Board, model: HarmonicModel, options: Ha
   const voltageDistortion = checkVoltageDistortion(lines, lineToLine);
   const { individualLimitPercent: individual, thdLimitPercent: thdLimit } = voltageDistortion;
   for (const bus of voltageDistortion.buses)
-    if (bus.thdPercent !== null && bus.thdPercent > thdLimit) warn('voltage-thd', harmonicsWarningText.voltageThd(bus.bus, bus.thdPercent, thdLimit), bus.thdPercent, thdLimit);
+    if (bus.thdPercent !== null && bus.thdPercent > thdLimit) warn('voltage-thd', harmonicsWarningText.voltageThd(label(bus.bus), bus.thdPercent, thdLimit), bus.thdPercent, thdLimit);
   // One warning for every bus with an order above the individual limit: the value is the worst.
   const overIndividual = voltageDistortion.buses.filter((b) => b.ordersAbove.length);
   if (overIndividual.length)
-    warn('voltage-individual', harmonicsWarningText.voltageIndividual(overIndividual, individual), Math.max(...overIndividual.flatMap((b) => b.ordersAbove.map((o) => o.percent))), individual);
+    warn('voltage-individual', harmonicsWarningText.voltageIndividual(overIndividual.map((b) => ({ ...b, bus: label(b.bus) })), individual), Math.max(...overIndividual.flatMap((b) => b.ordersAbove.map((o) => o.percent))), individual);
   // One warning per order at risk, naming every bank state that resonates near it.
   for (const o of scan.checkedOrders) {
     const hits = scan.combinations.flatMap((c) => {
@@ -212,12 +216,12 @@ export function analyseHarmonics(board: Board, model: HarmonicModel, options: Ha
   }
   if (duty)
     for (const c of duty.cases)
-      if (!c.ok) warn('capacitor-duty', harmonicsWarningText.capacitorDuty(`${c.label} (${conditionWords(c.condition)})`, c.branch, dutyMessage(c, duty.limits)), dutyRatio(c.figures, duty.limits), 1);
+      if (!c.ok) warn('capacitor-duty', harmonicsWarningText.capacitorDuty(`${c.label} (${conditionWords(c.condition)})`, label(c.branch), dutyMessage(c, duty.limits)), dutyRatio(c.figures, duty.limits), 1);
   if (tdd)
     for (const l of tdd.lines) {
       const over = l.orders.filter((o) => !o.ok).map((o) => o.order);
       if (l.tddPercent > tdd.tddLimitPercent || over.length)
-        warn('tdd', harmonicsWarningText.tdd(l.phase, l.tddPercent, tdd.tddLimitPercent, over), l.tddPercent, tdd.tddLimitPercent);
+        warn('tdd', harmonicsWarningText.tdd(label(l.phase), l.tddPercent, tdd.tddLimitPercent, over), l.tddPercent, tdd.tddLimitPercent);
     }
   const watts = lines.reduce((s, l) => s + l.kW * 1000, 0);
   const apparent = lines.reduce((s, l) => s + l.voltage.rms * l.current.rms, 0);
@@ -226,6 +230,7 @@ export function analyseHarmonics(board: Board, model: HarmonicModel, options: Ha
   const apparent1 = fundamentalLines.reduce((s, l) => s + l.voltage.rms * l.current.rms, 0);
   return {
     board: board.name,
+    phaseNames,
     frequencyHz: board.frequencyHz,
     orders: orders.slice(1).map((o) => o.order),
     state: model.bank ? `every bank step on (${combinationLabel(model.bank, model.bank.stepLoads.map(() => true))})` : 'as given',

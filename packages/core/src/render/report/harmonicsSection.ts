@@ -1,6 +1,7 @@
 /** The report section of a harmonic study: distortion per line and in the neutral, IEEE 519, resonance scan, capacitor duty. */
 import type { HarmonicsReport } from '../../harmonics/harmonicsResult.js';
 import { conditionWords } from '../../harmonics/dutyConditions.js';
+import { labelIn } from '../../board/conventions/phaseNames.js';
 import { fixed } from '../svgText.js';
 import { renderImpedanceScan } from '../renderImpedanceScan.js';
 import type { ReportBlock, ReportSection } from './reportDocument.js';
@@ -16,9 +17,11 @@ export const HARMONICS_STANDARDS: readonly StandardReference[] = [
 ];
 
 export function harmonicsSection(h: HarmonicsReport): ReportSection {
+  // Phases and branches as the board file names them (L1 or A).
+  const label = (term: string) => labelIn(h.phaseNames, term);
   const shown = [...new Set(h.lines.flatMap((l) => l.current.orders.map((o) => o.order)))].sort((a, b) => a - b).slice(0, SHOWN_ORDERS);
   const pct = (orders: HarmonicsReport['lines'][number]['current']['orders'], order: number) => orDash(orders.find((o) => o.order === order)?.percentOfFundamental, 1);
-  const currentRows = h.lines.map((l) => [l.phase, fixed(l.current.rms, 1), fixed(l.current.fundamental, 1), orDash(l.current.thdPercent, 1), ...shown.map((o) => pct(l.current.orders, o))]);
+  const currentRows = h.lines.map((l) => [label(l.phase), fixed(l.current.rms, 1), fixed(l.current.fundamental, 1), orDash(l.current.thdPercent, 1), ...shown.map((o) => pct(l.current.orders, o))]);
   if (h.neutral) {
     const n = h.neutral.current;
     currentRows.push(['N', fixed(n.rms, 1), fixed(n.fundamental, 1), '—', ...shown.map((o) => pct(n.orders, o))]);
@@ -36,7 +39,7 @@ export function harmonicsSection(h: HarmonicsReport): ReportSection {
       kind: 'table',
       caption: 'Voltages and power factor at the board',
       columns: [{ label: 'Line' }, { label: 'rms V', align: 'right' }, { label: 'THD %', align: 'right' }, { label: 'true PF', align: 'right' }, { label: 'displacement PF', align: 'right' }],
-      rows: h.lines.map((l) => [l.phase, fixed(l.voltage.rms, 1), orDash(l.voltage.thdPercent, 1), orDash(l.truePf, 3), orDash(l.displacementPf, 3)]),
+      rows: h.lines.map((l) => [label(l.phase), fixed(l.voltage.rms, 1), orDash(l.voltage.thdPercent, 1), orDash(l.truePf, 3), orDash(l.displacementPf, 3)]),
     },
   ];
   if (h.neutral) {
@@ -59,7 +62,7 @@ export function harmonicsSection(h: HarmonicsReport): ReportSection {
       caption: `Current distortion at the feed (IEEE 519): Isc/IL ${fixed(t.shortCircuitRatio, 1)}, row ${t.tableRow}, TDD limit ${fixed(t.tddLimitPercent, 1)} %`,
       columns: [{ label: 'Line' }, { label: 'TDD %', align: 'right' }, { label: 'Orders over their limit' }, { label: 'Verdict' }],
       rows: t.lines.map((l) => [
-        l.phase,
+        label(l.phase),
         fixed(l.tddPercent, 1),
         l.orders.filter((o) => !o.ok).map((o) => `h${o.order} ${fixed(o.percentOfDemand, 1)}/${fixed(o.limitPercent, 1)}`).join(', ') || 'none',
         l.ok ? 'within limits' : 'exceeds',
@@ -89,7 +92,7 @@ export function harmonicsSection(h: HarmonicsReport): ReportSection {
       kind: 'facts',
       items: [
         ['Capacitor units', `rated ${fixed(d.ratedV, 0)} V; fundamental ${fixed(d.capacitorVoltageV, 1)} V across them${d.detuningPercent ? `; detuned ${fixed(d.detuningPercent, 1)} %` : ''}`],
-        ['Worst state', `${w.label}, branch ${w.branch}, ${conditionWords(w.condition)} (checked at capacitance −${d.capacitanceTolerance.minusPercent} %, nominal and +${d.capacitanceTolerance.plusPercent} %, loads as given and all off)`],
+        ['Worst state', `${w.label}, branch ${label(w.branch)}, ${conditionWords(w.condition)} (checked at capacitance −${d.capacitanceTolerance.minusPercent} %, nominal and +${d.capacitanceTolerance.plusPercent} %, loads as given and all off)`],
         ['Highest capacitor voltage (fundamental)', `${fixed(d.highestCapacitorVoltageV, 1)} V`],
         ['V rms / V peak / I rms / kvar (per unit)', `${fixed(w.figures.voltageRms, 2)} / ${fixed(w.figures.voltagePeak, 2)} / ${fixed(w.figures.currentRms, 2)} / ${fixed(w.figures.kvar, 2)}`],
         ['Duty verdict', d.ok ? 'within limits in every state' : 'LIMIT EXCEEDED in at least one state'],
