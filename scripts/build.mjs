@@ -48,35 +48,32 @@ function coreImportsByModule() {
 // ESM with code splitting: each command (imported on demand in program.ts) is its own chunk beside
 // trivar.js, so start-up parses only what the command runs. Old chunks are cleared first.
 rmSync('packages/cli/dist', { recursive: true, force: true });
+/** What every CLI bundle shares: one minified ESM file set for Node 20, with `require` available. */
+const cliBundle = {
+  bundle: true,
+  platform: 'node',
+  target: 'node20',
+  format: 'esm',
+  minify: true,
+  legalComments: 'none',
+  banner: { js: requireShim },
+  logLevel: 'warning',
+};
 await build({
+  ...cliBundle,
   entryPoints: { trivar: 'packages/cli/src/main.ts' },
   outdir: 'packages/cli/dist',
   splitting: true,
   chunkNames: '[name]-[hash]',
   plugins: [coreImportsByModule()],
-  bundle: true,
-  platform: 'node',
-  target: 'node20',
-  format: 'esm',
-  minify: true,
-  legalComments: 'none',
-  banner: { js: requireShim },
-  logLevel: 'warning',
 });
 chmodSync('packages/cli/bin/trivar.js', 0o755);
 
 // Worker thread of `trivar profile` (reads half of a large interval-data file), beside the CLI bundle.
 await build({
+  ...cliBundle,
   entryPoints: ['packages/cli/src/profileWorker.ts'],
   outfile: 'packages/cli/dist/profile-worker.js',
-  bundle: true,
-  platform: 'node',
-  target: 'node20',
-  format: 'esm',
-  minify: true,
-  legalComments: 'none',
-  banner: { js: requireShim },
-  logLevel: 'warning',
 });
 
 await build({
