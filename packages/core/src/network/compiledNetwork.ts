@@ -116,6 +116,13 @@ export class CompiledNetwork {
   private readonly slopeRe: Float64Array;
   private readonly slopeIm: Float64Array;
   private readonly residual: Float64Array;
+  /** Each pair's voltage (from − to) in the last solve, and the current (dY/dm)·v the Jacobian uses. */
+  private readonly pairRe: Float64Array;
+  private readonly pairIm: Float64Array;
+  private readonly driveRe: Float64Array;
+  private readonly driveIm: Float64Array;
+  private readonly transferRe: Float64Array;
+  private readonly transferIm: Float64Array;
   private readonly jacobian: Float64Array;
   private readonly pivots: Int32Array;
   private readonly columnRe: Float64Array;
@@ -303,6 +310,12 @@ export class CompiledNetwork {
     this.slopeRe = new Float64Array(newton);
     this.slopeIm = new Float64Array(newton);
     this.residual = new Float64Array(newton);
+    this.pairRe = new Float64Array(newton);
+    this.pairIm = new Float64Array(newton);
+    this.driveRe = new Float64Array(newton);
+    this.driveIm = new Float64Array(newton);
+    this.transferRe = new Float64Array(newton * newton);
+    this.transferIm = new Float64Array(newton * newton);
     this.jacobian = new Float64Array(newton * newton);
     this.pivots = new Int32Array(newton);
     this.columnRe = new Float64Array(newton * size);
@@ -672,6 +685,8 @@ export class CompiledNetwork {
       const b = this.pairTo[g]!;
       const dr = (a === REFERENCE ? 0 : this.voltageRe[a]!) - (b === REFERENCE ? 0 : this.voltageRe[b]!);
       const di = (a === REFERENCE ? 0 : this.voltageIm[a]!) - (b === REFERENCE ? 0 : this.voltageIm[b]!);
+      this.pairRe[g] = dr;
+      this.pairIm[g] = di;
       this.residual[g] = Math.sqrt(dr * dr + di * di) - this.magnitude[g]!;
     }
   }
@@ -691,8 +706,6 @@ export class CompiledNetwork {
     const fIm = this.columnIm;
     const posFrom = this.pairPositionFrom;
     const posTo = this.pairPositionTo;
-    const vRe = this.voltageRe;
-    const vIm = this.voltageIm;
     const work = this.workRe;
     const workIm = this.workIm;
     for (let j = 0; j < q; j++) {
@@ -705,7 +718,7 @@ export class CompiledNetwork {
       if (posTo[j]! >= 0) fRe[base + posTo[j]!] = -1;
       forwardInOrder(p, work, workIm, fRe, fIm, base);
     }
-    // 1/pivot per position, scaled into the first column's spare room is not safe: keep them in `rhs`.
+    // 1/pivot per position (in `rhs`, which the next solve overwrites anyway).
     const invRe = this.rhsRe;
     const invIm = this.rhsIm;
     for (let k = 0; k < size; k++) {
@@ -716,20 +729,15 @@ export class CompiledNetwork {
       invRe[k] = dr / dd;
       invIm[k] = -di / dd;
     }
-    const jac = this.jacobian;
+    // Z(g, j) = Σ_k F_g[k]·F_j[k]/D_k, symmetric.
+    const zRe = this.transferRe;
+    const zIm = this.transferIm;
     for (let g = 0; g < q; g++) {
-      const a = this.pairFrom[g]!;
-      const b = this.pairTo[g]!;
-      const dr = (a === REFERENCE ? 0 : vRe[a]!) - (b === REFERENCE ? 0 : vRe[b]!);
-      const di = (a === REFERENCE ? 0 : vIm[a]!) - (b === REFERENCE ? 0 : vIm[b]!);
-      const m = Math.sqrt(dr * dr + di * di);
-      let rowSum = 0;
-      for (let j = 0; j < q; j++) {
-        // Z(g, j) = Σ_k F_g[k]·F_j[k]/D_k
+      const bg = g * size;
+      for (let j = g; j < q; j++) {
+        const bj = j * size;
         let zr = 0;
         let zi = 0;
-        const bg = g * size;
-        const bj = j * size;
         for (let k = 0; k < size; k++) {
           const ar = fRe[bg + k]!;
           const ai = fIm[bg + k]!;
@@ -741,18 +749,30 @@ export class CompiledNetwork {
           zr += pr * invRe[k]! - pi * invIm[k]!;
           zi += pr * invIm[k]! + pi * invRe[k]!;
         }
-        // dv_g/dm_j = −Z(g, j)·c_j, c_j = (dY_j/dm)·v_j
-        const a2 = this.pairFrom[j]!;
-        const b2 = this.pairTo[j]!;
-        const ur = (a2 === REFERENCE ? 0 : vRe[a2]!) - (b2 === REFERENCE ? 0 : vRe[b2]!);
-        const ui = (a2 === REFERENCE ? 0 : vIm[a2]!) - (b2 === REFERENCE ? 0 : vIm[b2]!);
-        const yr = this.slopeRe[j]!;
-        const yi = this.slopeIm[j]!;
-        const cr = yr * ur - yi * ui;
-        const ci = yr * ui + yi * ur;
-        const er = -(zr * cr - zi * ci);
-        const ei = -(zr * ci + zi * cr);
-        const slope = (dr * er + di * ei) / m;
+        zRe[g * q + j] = zr;
+        zIm[g * q + j] = zi;
+        zRe[j * q + g] = zr;
+        zIm[j * q + g] = zi;
+      }
+      // c_g = (dY_g/dm)·v_g: dv_h/dm_g = −Z(h, g)·c_g.
+      const ur = this.pairRe[g]!;
+      const ui = this.pairIm[g]!;
+      this.driveRe[g] = this.slopeRe[g]! * ur - this.slopeIm[g]! * ui;
+      this.driveIm[g] = this.slopeRe[g]! * ui + this.slopeIm[g]! * ur;
+    }
+    // I − φ', φ'(g, j) = Re(conj(v_g)·dv_g/dm_j)/|v_g|; every row sum of |φ'| below the limit.
+    const jac = this.jacobian;
+    for (let g = 0; g < q; g++) {
+      const dr = this.pairRe[g]!;
+      const di = this.pairIm[g]!;
+      const m = Math.sqrt(dr * dr + di * di);
+      let rowSum = 0;
+      for (let j = 0; j < q; j++) {
+        const zr = zRe[g * q + j]!;
+        const zi = zIm[g * q + j]!;
+        const cr = this.driveRe[j]!;
+        const ci = this.driveIm[j]!;
+        const slope = -(dr * (zr * cr - zi * ci) + di * (zr * ci + zi * cr)) / m;
         rowSum += Math.abs(slope);
         jac[g * q + j] = (g === j ? 1 : 0) - slope;
       }
