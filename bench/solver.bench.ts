@@ -28,21 +28,24 @@ import { solveNetwork as solveNetworkBefore } from './baseline/solveNetworkBefor
 const quick = process.argv.includes('--quick');
 const budgetMs = quick ? 150 : 600;
 
+/** One round: calls `fn` for about a third of `budgetMs`, returns calls per second. */
+function roundRate(fn: () => void): number {
+  let calls = 0;
+  const start = performance.now();
+  let elapsed = 0;
+  do {
+    for (let i = 0; i < 20; i++) fn();
+    calls += 20;
+    elapsed = performance.now() - start;
+  } while (elapsed < budgetMs / 3);
+  return (calls * 1000) / elapsed;
+}
+
 /** Calls `fn` repeatedly for about `budgetMs`, returns calls per second (best of three rounds). */
 function rate(fn: () => void): number {
   for (let i = 0; i < 50; i++) fn();
   let best = 0;
-  for (let round = 0; round < 3; round++) {
-    let calls = 0;
-    const start = performance.now();
-    let elapsed = 0;
-    do {
-      for (let i = 0; i < 20; i++) fn();
-      calls += 20;
-      elapsed = performance.now() - start;
-    } while (elapsed < budgetMs / 3);
-    best = Math.max(best, (calls * 1000) / elapsed);
-  }
+  for (let round = 0; round < 3; round++) best = Math.max(best, roundRate(fn));
   return best;
 }
 
@@ -52,20 +55,13 @@ function ratePair(a: () => void, b: () => void): [number, number] {
     a();
     b();
   }
-  const best = [0, 0];
-  for (let round = 0; round < 6; round++) {
-    const fn = round % 2 === 0 ? a : b;
-    let calls = 0;
-    const start = performance.now();
-    let elapsed = 0;
-    do {
-      for (let i = 0; i < 20; i++) fn();
-      calls += 20;
-      elapsed = performance.now() - start;
-    } while (elapsed < budgetMs / 3);
-    best[round % 2] = Math.max(best[round % 2]!, (calls * 1000) / elapsed);
+  let bestA = 0;
+  let bestB = 0;
+  for (let round = 0; round < 3; round++) {
+    bestA = Math.max(bestA, roundRate(a));
+    bestB = Math.max(bestB, roundRate(b));
   }
-  return [best[0]!, best[1]!];
+  return [bestA, bestB];
 }
 
 /** Median wall time of `fn`, ms. */
