@@ -170,7 +170,7 @@ export type { OrderSolution } from './harmonics/readHarmonics.js';
 export type { HarmonicsOptions } from './harmonics/studyHarmonics.js';
 export { studyBoardHarmonics, analyseHarmonics, solveHarmonicOrders, withSteps } from './harmonics/studyHarmonics.js';
 export { studyHarmonics } from './boardFile/studyHarmonics.js';
-export type { ScanEvaluator } from './harmonics/scanResonance.js';
+export type { ScanEvaluator } from './harmonics/scanEvaluator.js';
 export { scanResonance, createScanEvaluator, scanGrid, stepCombinations } from './harmonics/scanResonance.js';
 export { DUTY_LIMITS, dutyFigures } from './harmonics/capacitorDuty.js';
 export { dutyConditions, withCapacitanceFactor, withLoadsOff, conditionWords } from './harmonics/dutyConditions.js';
