@@ -44,7 +44,7 @@ export function withSteps(board: Board, bank: BankModel, steps: readonly boolean
   return { ...board, loads: board.loads.map((l, i): BoardLoad => (off.has(i) ? { ...l, branches: l.branches.map((b) => ({ ...b, sNominal: { re: 0, im: 0 } })) } : l)) };
 }
 
-function neutralCheck(board: Board, orders: readonly OrderSolution[], lines: readonly HarmonicLineReading[]): NeutralCheck | null {
+export function neutralCheck(board: Board, orders: readonly OrderSolution[], lines: readonly HarmonicLineReading[]): NeutralCheck | null {
   const current = readNeutral(orders);
   if (!current) return null;
   const triplen = current.orders.filter((o) => o.order % 3 === 0).reduce((s, o) => s + o.magnitude ** 2, 0);
@@ -61,7 +61,7 @@ function neutralCheck(board: Board, orders: readonly OrderSolution[], lines: rea
   };
 }
 
-function tddCheck(board: Board, model: HarmonicModel, lines: readonly HarmonicLineReading[]): TddCheck | null {
+export function tddCheck(board: Board, model: HarmonicModel, lines: readonly HarmonicLineReading[]): TddCheck | null {
   if (!model.pcc) return null;
   const demand = model.pcc.demandCurrentA ?? Math.max(...lines.map((l) => l.current.fundamental));
   const zSource = abs(add(board.sourceImpedance, board.lineImpedance));
@@ -90,8 +90,8 @@ function tddCheck(board: Board, model: HarmonicModel, lines: readonly HarmonicLi
   };
 }
 
-function checkedOrders(model: HarmonicModel): Pick<ResonanceScan, 'checkedOrders' | 'checkedOrdersFrom'> {
-  const present = ordersPresent(model);
+/** The orders a resonance is checked against: those solved, else the characteristic ones. */
+export function checkedOrders(present: readonly number[]): Pick<ResonanceScan, 'checkedOrders' | 'checkedOrdersFrom'> {
   return present.length
     ? { checkedOrders: present, checkedOrdersFrom: 'spectra and background' }
     : { checkedOrders: [...HARMONICS_DEFAULTS.watchedOrders], checkedOrdersFrom: 'characteristic orders (no spectrum given)' };
@@ -157,7 +157,7 @@ export function capacitorDuty(board: Board, model: HarmonicModel, solveOrders: D
   };
 }
 
-function assumptions(board: Board, model: HarmonicModel): string[] {
+export function assumptions(board: Board, model: HarmonicModel): string[] {
   const forms = new Set(model.loads.flatMap((l) => (l.kind === 'linear' ? [l.form] : [])));
   const words = regionWords(conventionsOf(board).region, board.system);
   return [
@@ -246,17 +246,12 @@ export function analyseHarmonics(board: Board, model: HarmonicModel, options: Ha
   const lineToLine = readLineToLine(orders);
   const neutral = neutralCheck(board, orders, lines);
   const tdd = tddCheck(board, model, lines);
-  const scan = scanResonance(fundamental, model, { ...checkedOrders(model), ...(options.scanOrders ? { grid: options.scanOrders } : {}) });
+  const scan = scanResonance(fundamental, model, { ...checkedOrders(ordersPresent(model)), ...(options.scanOrders ? { grid: options.scanOrders } : {}) });
   const duty = capacitorDuty(board, model, boardDutySolver(options.solve));
   const phaseNames = conventionsOf(board).phaseNames;
   const voltageDistortion = checkVoltageDistortion(lines, lineToLine);
   // Warnings name phases, pairs and branches the way the board file names them (L1-N or A-N).
   const warnings = harmonicsWarnings({ scan, neutral, voltageDistortion, duty, tdd }, (term) => labelIn(phaseNames, term));
-  const watts = lines.reduce((s, l) => s + l.kW * 1000, 0);
-  const apparent = lines.reduce((s, l) => s + l.voltage.rms * l.current.rms, 0);
-  const p1 = orders[0]!;
-  const fundamentalLines = readLines([p1]);
-  const apparent1 = fundamentalLines.reduce((s, l) => s + l.voltage.rms * l.current.rms, 0);
   return {
     board: board.name,
     phaseNames,
@@ -266,23 +261,37 @@ export function analyseHarmonics(board: Board, model: HarmonicModel, options: Ha
     lines,
     lineToLine,
     neutral,
-    powerFactor: {
-      true: apparent > 0 ? watts / apparent : null,
-      displacement: apparent1 > 0 ? fundamentalLines.reduce((s, l) => s + l.kW * 1000, 0) / apparent1 : null,
-    },
+    powerFactor: boardPowerFactor(orders, lines),
     tdd,
     voltageDistortion,
     scan,
     capacitorDuty: duty,
-    spectra: board.loads.flatMap((load, i) => {
-      const b = model.loads[i]!;
-      if (b.kind !== 'non-linear') return [];
-      return [{ load: load.name, spectrum: b.spectrumName, source: b.source, thdPercent: 100 * Math.sqrt(b.spectrum.reduce((s, o) => s + o.fraction ** 2, 0)) }];
-    }),
+    spectra: spectraOf(board, model),
     assumptions: assumptions(board, model),
     warnings,
     cautions: harmonicsCautions(regionWords(conventionsOf(board).region, board.system).groundWord),
   };
+}
+
+/** Board figures, arithmetic over the lines: ΣP / Σ(V·I) with every order, and at the fundamental alone. */
+export function boardPowerFactor(orders: readonly OrderSolution[], lines: readonly HarmonicLineReading[]): HarmonicsReport['powerFactor'] {
+  const watts = lines.reduce((s, l) => s + l.kW * 1000, 0);
+  const apparent = lines.reduce((s, l) => s + l.voltage.rms * l.current.rms, 0);
+  const fundamentalLines = readLines([orders[0]!]);
+  const apparent1 = fundamentalLines.reduce((s, l) => s + l.voltage.rms * l.current.rms, 0);
+  return {
+    true: apparent > 0 ? watts / apparent : null,
+    displacement: apparent1 > 0 ? fundamentalLines.reduce((s, l) => s + l.kW * 1000, 0) / apparent1 : null,
+  };
+}
+
+/** The non-linear loads of a board and their spectra. */
+export function spectraOf(board: Board, model: HarmonicModel): HarmonicsReport['spectra'] {
+  return board.loads.flatMap((load, i) => {
+    const b = model.loads[i]!;
+    if (b.kind !== 'non-linear') return [];
+    return [{ load: load.name, spectrum: b.spectrumName, source: b.source, thdPercent: 100 * Math.sqrt(b.spectrum.reduce((s, o) => s + o.fraction ** 2, 0)) }];
+  });
 }
 
 /** A bank's steps are three-phase, so it needs a three-phase board. */
