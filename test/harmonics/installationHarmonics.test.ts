@@ -18,15 +18,13 @@ import {
   compileInstallation,
   InputError,
   installationAtOrder,
-  normaliseInstallation,
   parseInstallation,
-  resolveHarmonicModel,
+  resolveInstallationHarmonics,
   solveInstallationAtOrder,
   solveInstallationNetwork,
   studyHarmonics,
   studyInstallationHarmonics,
   type BoardSpec,
-  type ComplexValue,
   type DistortionReading,
   type HarmonicsReport,
   type InstallationHarmonicsReport,
@@ -203,16 +201,10 @@ const harmonicInstallationArb = fc
     } as InstallationSpec;
   });
 
-/** The installation, its models and its fundamental, as the study builds them (no bank). */
-export function preparedInstallation(spec: InstallationSpec): { models: HarmonicModel[]; fundamental: InstallationSolution } {
-  const parsed = parseInstallation(spec);
-  const { installation, boardNumber } = normaliseInstallation(parsed);
-  const loadSpecs: LoadSpec[][] = [];
-  parsed.boards.forEach((b, i) => (loadSpecs[boardNumber[i]!] = b.loads));
-  const fundamental = solveInstallationNetwork(installation);
-  const { banks: _banks, ...shared } = parsed.harmonics ?? {};
-  const models = fundamental.boards.map((s, b) => resolveHarmonicModel({ loads: loadSpecs[b]!, harmonics: shared }, s.board, null));
-  return { models, fundamental };
+/** The installation and models the study builds, and its fundamental. */
+function preparedInstallation(spec: InstallationSpec): { models: readonly HarmonicModel[]; fundamental: InstallationSolution } {
+  const { installation, models } = resolveInstallationHarmonics(parseInstallation(spec));
+  return { models, fundamental: solveInstallationNetwork(installation) };
 }
 
 const power = cPower;

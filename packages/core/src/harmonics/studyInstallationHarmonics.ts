@@ -115,13 +115,21 @@ function installationAssumptions(main: Board, models: readonly HarmonicModel[], 
   ];
 }
 
+/** An installation ready for its harmonic study: the banks added as loads of their boards, and every board's model. */
+export interface InstallationHarmonicModel {
+  readonly installation: Installation;
+  /** One per board (0 = main board): how its loads behave at harmonic orders, its bank if it has one. */
+  readonly models: readonly HarmonicModel[];
+  /** Per bank of `harmonics.banks`, its board number. */
+  readonly bankBoards: readonly number[];
+}
+
 /**
- * Runs the harmonic study of a validated installation file (board loads'
- * `spectrum` fields, the `harmonics:` section with banks on named boards).
+ * Normalises a validated installation file and adds its banks: the installation and
+ * models the study solves (also what a check against another solver starts from).
  * @throws {InputError} for a bank on an unknown board, two banks on one board, or a bank on a supply that is not three-phase
- * @throws {NumericalError} when a solve fails
  */
-export function studyInstallationHarmonicsSpec(spec: HarmonicsInstallationSpec, options: HarmonicsOptions = {}): InstallationHarmonicsReport {
+export function resolveInstallationHarmonics(spec: HarmonicsInstallationSpec): InstallationHarmonicModel {
   const { installation: plain, boardNumber } = normaliseInstallation(spec);
   const section = spec.harmonics ?? {};
   const bankBoards = checkBanks(section, plain);
@@ -141,7 +149,17 @@ export function studyInstallationHarmonicsSpec(spec: HarmonicsInstallationSpec, 
     const bank = bankSpecs?.find((_, i) => bankBoards[i] === b);
     return resolveHarmonicModel({ loads: loadSpecs[b]!, harmonics: { ...shared, ...(bank ? { bank } : {}) } }, boardOfInstallation(installation, b), bankModels[b]!);
   });
+  return { installation, models, bankBoards };
+}
 
+/**
+ * Runs the harmonic study of a validated installation file (board loads'
+ * `spectrum` fields, the `harmonics:` section with banks on named boards).
+ * @throws {InputError} for a bank on an unknown board, two banks on one board, or a bank on a supply that is not three-phase
+ * @throws {NumericalError} when a solve fails
+ */
+export function studyInstallationHarmonicsSpec(spec: HarmonicsInstallationSpec, options: HarmonicsOptions = {}): InstallationHarmonicsReport {
+  const { installation, models, bankBoards } = resolveInstallationHarmonics(spec);
   const { fundamental, solved } = solveOrders(installation, models, options.solve);
   const main = fundamental.boards[0]!.board;
   const phaseNames = conventionsOf(main).phaseNames;
