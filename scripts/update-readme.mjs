@@ -13,6 +13,7 @@ const blocks = [
   ['regions-output', ['solve', 'examples/pine-hollow-cabin.yaml']],
   ['installation-correct-output', ['correct', 'examples/tannery-lane-works.yaml', '--board', 'Press shop', '--arrangement', 'star-bank']],
   ['harmonics-output', ['harmonics', 'examples/mill-street-offices.yaml']],
+  ['harmonics-installation-output', ['harmonics', 'examples/harrow-yard-studios.yaml']],
   ['correct-detuned-output', ['correct', 'examples/quayside-print-works.yaml']],
   ['check-output', ['check', 'examples/riverside-cold-store.yaml', 'examples/hand-figures/riverside-cold-store.yaml']],
   ['rebalance-output', ['rebalance', 'examples/larkspur-court-flats.yaml']],

@@ -73,7 +73,7 @@ banks go under "harmonics: banks:" with the board each is on, and the scan is se
 Examples:
   trivar harmonics examples/mill-street-offices.yaml
   trivar harmonics examples/mill-street-offices.yaml --json > harmonics.json
-  trivar harmonics examples/harrow-yard-studios.yaml --board "Studios ground floor"
+  trivar harmonics examples/harrow-yard-studios.yaml --board "Studios ground"
 
 Exit codes: as for solve`;
 

@@ -1,6 +1,7 @@
 /** HarmonicsReport → the human-readable report of `trivar harmonics`. */
 import { conditionWords, labelIn, type DistortionReading, type HarmonicsReport, type ResonanceScan, type CapacitorDuty, type TddCheck, type NeutralCheck } from '@trivar/core';
-import { fixed, renderTable, section } from './textTable.js';
+import { fixed, renderTable, section, textWidth } from './textTable.js';
+import { REPORT_WIDTH } from './wrapText.js';
 import { wrapText } from './wrapText.js';
 
 /** A prose line of the report, wrapped to the report width under its own indent. */
@@ -70,15 +71,33 @@ export function neutralLines(n: NeutralCheck): string[] {
 
 export function tddLines(t: TddCheck, label: Label): string[] {
   const head = prose(`I_sc/I_L = ${fixed(t.shortCircuitRatio, 1)} (${t.shortCircuitRatioFrom}), I_L = ${fixed(t.demandCurrentA, 1)} A (${t.demandCurrentFrom}); table row ${t.tableRow}, TDD limit ${t.tddLimitPercent} %`);
-  const table = renderTable(
-    [{ header: 'line', align: 'left' }, { header: 'TDD %' }, { header: 'limit %' }, { header: 'orders over their limit', align: 'left' }, { header: 'verdict', align: 'left' }],
-    t.lines.map((l) => {
-      const over = l.orders.filter((o) => !o.ok).map((o) => `h${o.order} ${fixed(o.percentOfDemand, 1)}/${o.limitPercent}`);
-      return [label(l.phase), fixed(l.tddPercent, 1), fixed(t.tddLimitPercent, 1), over.join(', ') || '-', l.ok ? 'within' : 'EXCEEDS'];
-    }),
-  );
-  return [head, table, prose(`source: ${t.source}`)];
+  const columns = [{ header: 'line', align: 'left' as const }, { header: 'TDD %' }, { header: 'limit %' }, { header: 'orders over their limit', align: 'left' as const }, { header: 'verdict', align: 'left' as const }];
+  const rows = t.lines.map((l) => {
+    const over = l.orders.filter((o) => !o.ok).map((o) => `h${o.order} ${fixed(o.percentOfDemand, 1)}/${o.limitPercent}`);
+    return [label(l.phase), fixed(l.tddPercent, 1), fixed(t.tddLimitPercent, 1), over.join(', ') || '-', l.ok ? 'within' : 'EXCEEDS'];
+  });
+  return [head, fitOrdersColumn(columns, rows), prose(`source: ${t.source}`)];
 }
+
+/** Many orders over their limit make a long cell: it continues on rows of its own rather than widen the table. */
+function fitOrdersColumn(columns: Parameters<typeof renderTable>[0], rows: string[][]): string {
+  const table = renderTable(columns, rows);
+  const excess = Math.max(...table.split('\n').map(textWidth)) - REPORT_WIDTH;
+  if (excess <= 0) return table;
+  const room = Math.max(...rows.map((r) => textWidth(r[3]!))) - excess;
+  const split: string[][] = [];
+  for (const row of rows) {
+    const lines: string[] = [];
+    for (const part of row[3]!.split(', ')) {
+      const last = lines.length - 1;
+      if (last >= 0 && textWidth(`${lines[last]}, ${part}`) < room) lines[last] = `${lines[last]}, ${part}`;
+      else lines.push(part);
+    }
+    lines.forEach((text, k) => split.push(k === 0 ? [...row.slice(0, 3), k < lines.length - 1 ? `${text},` : text, row[4]!] : ['', '', '', k < lines.length - 1 ? `${text},` : text, '']));
+  }
+  return renderTable(columns, split);
+}
+
 
 /** Bank states with the same output resonate alike: one row per output, listing the states. */
 export function scanTable(s: ResonanceScan, label: Label): string {

@@ -4,7 +4,7 @@
  * check, the scan and duty of each bank, then the full figures of the boards asked for.
  */
 import type { BoardHarmonics, InstallationHarmonicsReport } from '@trivar/core';
-import { fixed, renderTable, section } from './textTable.js';
+import { fixed, renderTableWithin, section } from './textTable.js';
 import { wrapText } from './wrapText.js';
 import { currentTable, dutyLines, labeller, neutralLines, prose, resonanceTitle, scanLine, scanTable, spectraLines, tddLines, voltageTable } from './harmonicsReport.js';
 
@@ -21,7 +21,6 @@ function boardTable(r: InstallationHarmonicsReport): string {
   const rows = r.boards.map((b) => {
     const worst = worstBus(b);
     const largestLine = b.lines.reduce((w, l) => (l.current.rms > w.current.rms ? l : w));
-    const warnings = r.warnings.filter((w) => w.board === b.board).length;
     return [
       treeName(b.board, b.depth),
       worst ? `${fixed(worst.thd, 1)} ${label(worst.bus)}` : '-',
@@ -32,21 +31,19 @@ function boardTable(r: InstallationHarmonicsReport): string {
       b.triplenNeutralA === null ? '' : fixed(b.triplenNeutralA, 1),
       b.neutral?.loadingPercent === null || b.neutral?.loadingPercent === undefined ? '-' : `${fixed(b.neutral.loadingPercent, 0)}${b.neutral.overloaded ? ' OVER' : ''}`,
       b.powerFactor.true === null ? '-' : fixed(b.powerFactor.true, 3),
-      String(warnings || ''),
     ];
   });
-  return renderTable(
+  return renderTableWithin(
     [
       { header: 'board', align: 'left' },
       { header: 'V THD %', align: 'left' },
-      { header: 'IEEE 519', align: 'left' },
+      { header: '519 V', align: 'left' },
       { header: 'feeder A', align: 'left' },
       { header: 'I THD %' },
       { header: 'N A' },
-      { header: 'triplen N A' },
+      { header: 'triplen A' },
       { header: 'N load %', align: 'left' },
       { header: 'true PF' },
-      { header: 'warnings' },
     ],
     rows,
   );
@@ -68,7 +65,7 @@ export function renderInstallationHarmonicsReport(r: InstallationHarmonicsReport
   out.push(boardTable(r));
   out.push(
     note(
-      'V THD: the busbar voltage with the highest THD; IEEE 519: ≤ 1 kV limits (5 % one order, 8 % THD) on every bus voltage; feeder A: the largest line current of the feeder into the board (the service feeder at the main board) and its THD; triplen N A: the neutral’s orders 3, 9, 15…; N load: % of the feeder’s neutral rating.)',
+      'V THD: the busbar voltage with the highest THD; 519 V: IEEE 519 limits at ≤ 1 kV (5 % one order, 8 % THD) on every bus voltage; feeder A: the largest line current of the feeder into the board (the service feeder at the main board) and its THD; triplen A: the neutral’s orders 3, 9, 15…; N load: % of the feeder’s neutral rating; warnings below name their board.)',
     ),
   );
   if (r.tdd) {
