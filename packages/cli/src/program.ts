@@ -41,6 +41,7 @@ Examples:
   trivar correct examples/riverside-cold-store.yaml --arrangement star-bank --pf 0.97
   trivar correct examples/corner-bakery.yaml --arrangement balancing-compensator
   trivar correct examples/tannery-lane-works.yaml --board "Press shop" --arrangement star-bank
+  trivar correct examples/tannery-lane-works.yaml --board "Press shop" --measured-at origin --arrangement star-bank
   trivar correct board.yaml --arrangement delta-bank --definition effective --light-load 0.2 --json
 
 Exit codes: as for solve, plus
@@ -67,10 +68,13 @@ by row and column)`;
 const HARMONICS_EXAMPLES = `
 Spectra go on the loads (spectrum: switch-mode | [{ order, percent, angleDeg }]); background distortion,
 an installed bank and the IEEE 519 check go under "harmonics:" in the board file (see trivar schema).
+On an installation file every board is solved at once (the feeders and their neutrals at each order);
+banks go under "harmonics: banks:" with the board each is on, and the scan is seen from that board.
 
 Examples:
   trivar harmonics examples/mill-street-offices.yaml
   trivar harmonics examples/mill-street-offices.yaml --json > harmonics.json
+  trivar harmonics examples/harrow-yard-studios.yaml --board "Studios ground"
 
 Exit codes: as for solve`;
 
@@ -200,6 +204,7 @@ export function createProgram(io: CliIo, outcome: RunOutcome = { exitCode: EXIT.
     .description('size a capacitor bank or balancing compensator for a power-factor target, choose units, and verify by re-solving')
     .argument('<board>', 'board or installation file (YAML or JSON), or - for standard input')
     .option('--board <name>', 'installation files: the board the equipment goes on (default: the main board)')
+    .option('--measured-at <point>', "where the target is measured: origin (the supply's terminals) or a board the equipment's board is fed through (default: the equipment's board)")
     .addOption(new Option('--arrangement <kind>', 'what to size (default: compare every arrangement that fits the board)').choices(['star-bank', 'delta-bank', 'balancing-compensator']))
     .option('--pf <value>', 'target power factor (0 < pf <= 1; default 0.95)', numberIn(0, 1, 'a power factor above 0 and at most 1'))
     .addOption(
@@ -244,10 +249,12 @@ export function createProgram(io: CliIo, outcome: RunOutcome = { exitCode: EXIT.
   program
     .command('harmonics')
     .description('harmonic study: line and neutral rms with harmonics, THD, resonance scan of every bank state, capacitor duty')
-    .argument('<board>', 'board file (YAML or JSON), or - for standard input')
+    .argument('<board>', 'board or installation file (YAML or JSON), or - for standard input')
     .option('--json', 'print the full report (with the scan data) as JSON instead of the text report')
+    .option('--board <name>', 'installation files: also print the full figures of this board (repeatable)', (v: string, prev: string[] = []) => [...prev, v])
+    .option('--all-boards', 'installation files: print the full figures of every board')
     .addHelpText('after', HARMONICS_EXAMPLES)
-    .action(async (board: string, opts: { json?: boolean }) => {
+    .action(async (board: string, opts: { json?: boolean; board?: string[]; allBoards?: boolean }) => {
       const { runHarmonics } = await import('./commands/harmonics.js');
       await runHarmonics(board, opts, io);
     });
