@@ -26,6 +26,7 @@ export { PHYSICAL_RANGES } from './board/boardSchema.js';
 export { boardSchema } from './boardFile/boardFileSchema.js';
 export type { BoardValidation } from './boardFile/validateBoard.js';
 export { validateBoard, parseBoard, parseBoardText } from './boardFile/validateBoard.js';
+export { readWellFormedBoard } from './boardFile/boardFileRules.js';
 export { readBoardText, BOARD_TEXT_LIMITS } from './board/readBoardText.js';
 export { boardJsonSchema, installationJsonSchema } from './boardFile/boardJsonSchema.js';
 export { acceptedConnections } from './board/boardRules.js';
@@ -38,7 +39,7 @@ export type { InstallationSpec, InstallationBoardSpec } from './boardFile/boardF
 export { installationSchema } from './boardFile/boardFileSchema.js';
 export type { InstallationValidation } from './boardFile/validateInstallation.js';
 export { validateInstallation, parseInstallation } from './boardFile/validateInstallation.js';
-export { isInstallationInput } from './board/validateInstallationWith.js';
+export { isInstallationInput } from './board/installationInput.js';
 export { normaliseInstallation } from './board/normaliseInstallation.js';
 export type { FeederSpec, PerPhaseConductorSpec, WindingSpec } from './board/boardSchema.js';
 export type { ConductorMaterial, ConductorSize, ConductorResistance } from './board/cableLibrary.js';

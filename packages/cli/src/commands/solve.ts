@@ -1,5 +1,5 @@
 /** `trivar solve`: read a board or installation file, solve it, print the report or JSON. */
-import { isInstallationInput, readBoardText, solveBoard, solveInstallation, type BoardResult, type InstallationResult } from '@trivar/core';
+import { isInstallationInput, normaliseBoard, readBoardText, readWellFormedBoard, solveBoardModel, type BoardResult, type InstallationResult } from '@trivar/core';
 import type { CliIo } from '../io.js';
 import { writeResult } from '../writeResult.js';
 import { collapseError } from '../exitCodes.js';
@@ -22,11 +22,14 @@ export async function runSolve(file: string, options: SolveCommandOptions, io: C
   const solveOptions = options.openNeutral ? { openNeutral: true } : {};
   if (!isInstallationInput(input)) {
     if (options.board?.length || options.allBoards) throw boardOptionOnBoardFile('--board and --all-boards');
-    const result = solveBoard(input, solveOptions);
+    // solveBoard's steps, with the schemas loaded only for a board the shortcut steps aside from.
+    const spec = readWellFormedBoard(input) ?? (await import('./schemaChecks.js')).parseBoard(input);
+    const result = solveBoardModel(normaliseBoard(spec), solveOptions);
     writeResult(io, result, options.json, renderSolveReport);
     if (result.operatingPoint.collapsed) throw collapseError(result);
     return result;
   }
+  const { solveInstallation } = await import('./schemaChecks.js');
   const result = solveInstallation(input, solveOptions);
   const names = result.boards.map((b) => b.name);
   const unknown = (options.board ?? []).filter((n) => !names.includes(n));
