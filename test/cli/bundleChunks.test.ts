@@ -27,6 +27,7 @@ const chunkOf = (command: string) => readdirSync(DIST).find((f) => f.startsWith(
 const CORRECTION = 'the board already meets the target: nothing to add';
 const CSV_READER = 'the interval data cannot be read';
 const BOARD_SCHEMA = 'the circuits on the board'; // a description in boardSchema.ts (zod)
+const YAML_READER = 'a second YAML document starts here'; // readBoardText.ts's wording of yaml's errors
 
 describe('CLI chunks', () => {
   it('each command is a chunk of its own, loaded on demand', () => {
@@ -45,5 +46,12 @@ describe('CLI chunks', () => {
     expect(loadedText(chunkOf('solve'))).not.toMatch(/\bZodError\b/);
     expect(loadedText(chunkOf('schemaChecks'))).toContain(BOARD_SCHEMA);
     expect(readFileSync(DIST + chunkOf('solve'), 'utf8')).toContain(`import("./${chunkOf('schemaChecks')}")`);
+  });
+  it('solve loads no yaml: JSON and plain YAML are read without it, yaml comes on demand', () => {
+    expect(loadedText(chunkOf('solve'))).not.toContain(YAML_READER);
+    expect(loadedText(chunkOf('solve'))).not.toContain('MULTIPLE_DOCS');
+    expect(loadedText(chunkOf('yamlReading'))).toContain(YAML_READER);
+    expect(loadedText(chunkOf('yamlReading'))).toContain('MULTIPLE_DOCS');
+    expect(readFileSync(DIST + chunkOf('solve'), 'utf8')).toContain(`import("./${chunkOf('yamlReading')}")`);
   });
 });

@@ -66,18 +66,25 @@ export const optional = (shape: PlainShape): PlainField => ({ shape, optional: t
  * (files cannot write one; zod's output for it is not worth copying).
  */
 export function strictObjectOf(fields: Readonly<Record<string, PlainField>>): PlainShape {
-  const entries = Object.entries(fields);
-  const known = new Set(Object.keys(fields));
+  const keys = Object.keys(fields);
+  const shapes = keys.map((k) => fields[k]!.shape);
+  const optionals = keys.map((k) => fields[k]!.optional);
+  const known = new Set(keys);
+  // Absent and inherited read alike below (v[key] === undefined) only while no key is a property of every object.
+  for (const key of keys) if (key in Object.prototype) throw new Error(`strictObjectOf: "${key}" is a property of every object`);
   return (v) => {
     if (!isPlainObject(v)) return NOT_THIS_SHAPE;
-    for (const key of Object.keys(v)) if (!known.has(key) || v[key] === undefined) return NOT_THIS_SHAPE;
+    const own = Object.keys(v);
+    for (let k = 0; k < own.length; k++) if (!known.has(own[k]!) || v[own[k]!] === undefined) return NOT_THIS_SHAPE;
     const out: Record<string, unknown> = {};
-    for (const [key, field] of entries) {
-      if (!Object.hasOwn(v, key)) {
-        if (field.optional) continue;
+    for (let k = 0; k < keys.length; k++) {
+      const key = keys[k]!;
+      const given = v[key];
+      if (given === undefined) {
+        if (optionals[k]) continue;
         return NOT_THIS_SHAPE;
       }
-      const value = field.shape(v[key]);
+      const value = shapes[k]!(given);
       if (value === NOT_THIS_SHAPE) return NOT_THIS_SHAPE;
       out[key] = value;
     }
