@@ -212,6 +212,7 @@ class LineScanner {
       return out;
     }
     for (;;) {
+      if (this.simpleEntry(out)) return out;
       const key = this.keyText(true);
       if (this.text[this.i] !== ':' || this.text[this.i + 1] !== ' ') aside();
       this.i += 2;
@@ -222,6 +223,27 @@ class LineScanner {
       const c = this.text[this.i++];
       if (c === '}') return out;
       if (c !== ',') aside();
+      this.skipSpaces();
+    }
+  }
+
+  /**
+   * The common entry `name: plain text,` (or `}`) read by one regular expression: the same
+   * key, value and position the general steps below reach. False (nothing read) for any
+   * other entry, which the general steps then read or refuse. True when it closed the mapping.
+   */
+  private simpleEntry(out: Record<string, unknown>): boolean {
+    for (;;) {
+      SIMPLE_FLOW_ENTRY.lastIndex = this.i;
+      const m = SIMPLE_FLOW_ENTRY.exec(this.text);
+      if (m === null) return false;
+      const key = m[1]!;
+      const text = m[2]!;
+      if (!isPlainStart(text.charCodeAt(0), text.charCodeAt(1)) || key === '__proto__' || key.length > 1000 || typeof resolvePlain(key) !== 'string') return false;
+      if (Object.hasOwn(out, key)) aside();
+      out[key] = resolvePlain(text);
+      this.i = SIMPLE_FLOW_ENTRY.lastIndex;
+      if (m[3] === '}') return true;
       this.skipSpaces();
     }
   }
@@ -311,6 +333,9 @@ class LineScanner {
     return value;
   }
 }
+
+/** A flow mapping entry of a plain key and a plain value with no character that needs a decision, then `,` or `}`. */
+const SIMPLE_FLOW_ENTRY = /([A-Za-z_$][\w$ -]*?) *: +([^ #:[\]{},'"][^#:[\]{},'"]*?) *([,}])/y;
 
 /** Characters of a plain scalar that need no decision; the scan stops at the others. */
 const BLOCK_PLAIN_RUN = /[^#:[\]{}]*/y;
