@@ -134,6 +134,13 @@ describe('readPlainYamlText', () => {
     expect(fast).toBeGreaterThan(100);
   });
 
+  it('reads long runs of spaces in a line in linear time (no regular-expression backtracking blow-up)', () => {
+    const spaces = ' '.repeat(200_000);
+    expect(readPlainYamlText(`v: { j: a${spaces}b${spaces}, k: c${spaces}}\n`)).toEqual({ v: { j: `a${spaces}b`, k: 'c' } });
+    expect(readPlainYamlText(`v: { k${spaces}x: 1 }\n`)).toBeUndefined(); // a key that long is yaml's to refuse
+    expect(readPlainYamlText(`v: { k: a${spaces}b${spaces}:\n`)).toBeUndefined();
+  });
+
   it('steps aside for what it leaves to yaml: anchors, a repeated key, tabs, a second document, multi-line values', () => {
     for (const text of ['a: &x 1\nb: *x\n', 'a: 1\na: 2\n', 'a:\t1\n', 'a: 1\n---\nb: 2\n', 'a: one\n  two\n', 'a: "one\n  two"\n', 'a: |\n  x\n', '? a\n: 1\n', '- 1\n', ''])
       expect(readPlainYamlText(text), JSON.stringify(text)).toBeUndefined();

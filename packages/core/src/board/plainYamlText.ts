@@ -237,8 +237,8 @@ class LineScanner {
       SIMPLE_FLOW_ENTRY.lastIndex = this.i;
       const m = SIMPLE_FLOW_ENTRY.exec(this.text);
       if (m === null) return false;
-      const key = m[1]!;
-      const text = m[2]!;
+      const key = trimSpaces(m[1]!);
+      const text = trimSpaces(m[2]!);
       if (!isPlainStart(text.charCodeAt(0), text.charCodeAt(1)) || key === '__proto__' || key.length > 1000 || typeof resolvePlain(key) !== 'string') return false;
       if (Object.hasOwn(out, key)) aside();
       out[key] = resolvePlain(text);
@@ -335,7 +335,15 @@ class LineScanner {
 }
 
 /** A flow mapping entry of a plain key and a plain value with no character that needs a decision, then `,` or `}`. */
-const SIMPLE_FLOW_ENTRY = /([A-Za-z_$][\w$ -]*?) *: +([^ #:[\]{},'"][^#:[\]{},'"]*?) *([,}])/y;
+// Greedy runs, each ended by a character it cannot hold: no backtracking blow-up on long lines (spaces are trimmed after).
+const SIMPLE_FLOW_ENTRY = /([A-Za-z_$][\w$ -]*): +([^ #:[\]{},'"][^#:[\]{},'"]*)([,}])/y;
+
+/** Without trailing spaces (only spaces: YAML counts other space characters as content). */
+function trimSpaces(text: string): string {
+  let end = text.length;
+  while (text.charCodeAt(end - 1) === 0x20) end--;
+  return end === text.length ? text : text.slice(0, end);
+}
 
 /** Characters of a plain scalar that need no decision; the scan stops at the others. */
 const BLOCK_PLAIN_RUN = /[^#:[\]{}]*/y;
