@@ -26,6 +26,8 @@ const chunkOf = (command: string) => readdirSync(DIST).find((f) => f.startsWith(
 // Strings that only the named code holds (they survive minification).
 const CORRECTION = 'the board already meets the target: nothing to add';
 const CSV_READER = 'the interval data cannot be read';
+const BOARD_SCHEMA = 'the circuits on the board'; // a description in boardSchema.ts (zod)
+const YAML_READER = 'a second YAML document starts here'; // readBoardText.ts's wording of yaml's errors
 
 describe('CLI chunks', () => {
   it('each command is a chunk of its own, loaded on demand', () => {
@@ -38,5 +40,18 @@ describe('CLI chunks', () => {
     expect(loadedText('trivar.js')).not.toContain(CORRECTION);
     expect(loadedText(chunkOf('correct'))).toContain(CORRECTION);
     expect(loadedText(chunkOf('profile'))).toContain(CSV_READER);
+  });
+  it('solve loads no schema: a well-formed board is checked without zod, the schemas come on demand', () => {
+    expect(loadedText(chunkOf('solve'))).not.toContain(BOARD_SCHEMA);
+    expect(loadedText(chunkOf('solve'))).not.toMatch(/\bZodError\b/);
+    expect(loadedText(chunkOf('schemaChecks'))).toContain(BOARD_SCHEMA);
+    expect(readFileSync(DIST + chunkOf('solve'), 'utf8')).toContain(`import("./${chunkOf('schemaChecks')}")`);
+  });
+  it('solve loads no yaml: JSON and plain YAML are read without it, yaml comes on demand', () => {
+    expect(loadedText(chunkOf('solve'))).not.toContain(YAML_READER);
+    expect(loadedText(chunkOf('solve'))).not.toContain('MULTIPLE_DOCS');
+    expect(loadedText(chunkOf('yamlReading'))).toContain(YAML_READER);
+    expect(loadedText(chunkOf('yamlReading'))).toContain('MULTIPLE_DOCS');
+    expect(readFileSync(DIST + chunkOf('solve'), 'utf8')).toContain(`import("./${chunkOf('yamlReading')}")`);
   });
 });

@@ -1,5 +1,5 @@
 /** `trivar solve`: read a board or installation file, solve it, print the report or JSON. */
-import { isInstallationInput, readBoardText, solveBoard, solveInstallation, type BoardResult, type InstallationResult } from '@trivar/core';
+import { isInstallationInput, normaliseBoard, readPlainBoardText, readWellFormedBoard, solveBoardModel, type BoardResult, type InstallationResult } from '@trivar/core';
 import type { CliIo } from '../io.js';
 import { writeResult } from '../writeResult.js';
 import { collapseError } from '../exitCodes.js';
@@ -18,15 +18,19 @@ export interface SolveCommandOptions {
 
 export async function runSolve(file: string, options: SolveCommandOptions, io: CliIo): Promise<BoardResult | InstallationResult> {
   const text = await io.readSource(file, options.maxInputMb === undefined ? {} : { maxInputMB: options.maxInputMb });
-  const input = readBoardText(text);
+  // JSON and plain YAML are read without yaml; only other YAML loads it (and words any syntax error).
+  const input = readPlainBoardText(text) ?? (await import('./yamlReading.js')).readBoardText(text);
   const solveOptions = options.openNeutral ? { openNeutral: true } : {};
   if (!isInstallationInput(input)) {
     if (options.board?.length || options.allBoards) throw boardOptionOnBoardFile('--board and --all-boards');
-    const result = solveBoard(input, solveOptions);
+    // solveBoard's steps, with the schemas loaded only for a board the shortcut steps aside from.
+    const spec = readWellFormedBoard(input) ?? (await import('./schemaChecks.js')).parseBoard(input);
+    const result = solveBoardModel(normaliseBoard(spec), solveOptions);
     writeResult(io, result, options.json, renderSolveReport);
     if (result.operatingPoint.collapsed) throw collapseError(result);
     return result;
   }
+  const { solveInstallation } = await import('./schemaChecks.js');
   const result = solveInstallation(input, solveOptions);
   const names = result.boards.map((b) => b.name);
   const unknown = (options.board ?? []).filter((n) => !names.includes(n));

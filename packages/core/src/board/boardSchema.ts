@@ -14,6 +14,25 @@ import * as z from 'zod';
 import { groupDigits } from '../_internal/groupDigits.js';
 import { conventionsSchema } from './conventions/conventionsSchema.js';
 import { NOTATION_ACCEPTED, readVoltageNotation } from './conventions/voltageNotation.js';
+import {
+  ANGLE_DEG,
+  AWG_MAX_CHARS,
+  BREAKER_POLES,
+  CONDUCTOR_MATERIALS,
+  CONNECTIONS,
+  FREQUENCIES_HZ,
+  LOAD_MODELS,
+  NOTATION_MAX_CHARS,
+  PARALLEL_CONDUCTORS,
+  PF_SENSES,
+  PHASE_SEQUENCES,
+  PHYSICAL_RANGES,
+  STAR_POINTS,
+  SYSTEMS,
+  type PhysicalRange,
+} from './boardRanges.js';
+
+export { CONNECTIONS, LOAD_MODELS, PHYSICAL_RANGES, SYSTEMS };
 
 const nonNegative = z.number().nonnegative();
 
@@ -28,49 +47,6 @@ function within(range: PhysicalRange): z.ZodNumber {
   return (above ? z.number().gt(min, { message: text }) : z.number().min(min, { message: text })).max(max, { message: text });
 }
 
-interface PhysicalRange {
-  readonly min: number;
-  readonly max: number;
-  readonly unit: string;
-  /** The lower end is excluded. */
-  readonly above?: boolean;
-}
-
-/** Accepted ranges of the physical numbers in a board file (common practice, no source, unless named). */
-export const PHYSICAL_RANGES = {
-  /** Low voltage is up to 1000 V a.c. (IEC 60038, IEC 60364); 10 V leaves room for extra-low-voltage boards. */
-  voltage: { min: 10, max: 1000, unit: 'V' },
-  emfV: { min: 0, max: 1000, unit: 'V', above: true },
-  /** Distribution transformers feeding LV boards run from a few kVA to about 4,000 kVA. */
-  transformerKVA: { min: 0.1, max: 10_000, unit: 'kVA' },
-  impedancePercent: { min: 0, max: 30, unit: '%', above: true },
-  xOverR: { min: 0, max: 100, unit: '' },
-  /** Source, feeder and conductor impedances (a 1 mm² copper conductor is 18 ohm/km, IEC 60228). */
-  supplyOhms: { min: 0, max: 1000, unit: 'ohm' },
-  supplyReactanceOhms: { min: -1000, max: 1000, unit: 'ohm' },
-  ohmsPerKm: { min: 0, max: 10_000, unit: 'ohm/km' },
-  lengthM: { min: 0, max: 100_000, unit: 'm', above: true },
-  lengthFt: { min: 0, max: 330_000, unit: 'ft', above: true },
-  /** Cable library sizes (the tables hold the sizes; these only keep out nonsense). */
-  conductorMm2: { min: 0, max: 5000, unit: 'mm²', above: true },
-  conductorKcmil: { min: 0, max: 5000, unit: 'kcmil', above: true },
-  conductorTemperatureC: { min: -50, max: 250, unit: '°C' },
-  ratingA: { min: 0, max: 100_000, unit: 'A', above: true },
-  /** Loads: 100 MW is far beyond any one LV board. */
-  loadKW: { min: -100_000, max: 100_000, unit: 'kW' },
-  loadKvar: { min: -100_000, max: 100_000, unit: 'kvar' },
-  loadKVA: { min: 0, max: 100_000, unit: 'kVA', above: true },
-  loadA: { min: 0, max: 100_000, unit: 'A', above: true },
-  /** Below 0.01 a load is a reactance: give kW and kvar. */
-  pf: { min: 0.01, max: 1, unit: '' },
-  loadOhms: { min: 0, max: 1e7, unit: 'ohm' },
-  loadReactanceOhms: { min: -1e7, max: 1e7, unit: 'ohm' },
-} as const satisfies Record<string, PhysicalRange>;
-
-export const SYSTEMS = ['three-phase-4wire', 'three-phase-3wire', 'single-phase', 'split-phase'] as const;
-export const CONNECTIONS = ['A-N', 'B-N', 'C-N', 'A-B', 'B-C', 'C-A', 'ABC-star', 'ABC-delta'] as const;
-export const LOAD_MODELS = ['constant-impedance', 'constant-current', 'constant-power'] as const;
-
 const impedanceOf = (r: PhysicalRange, x: PhysicalRange) =>
   z
     .strictObject({
@@ -83,7 +59,7 @@ const loadImpedanceSchema = impedanceOf(PHYSICAL_RANGES.loadOhms, PHYSICAL_RANGE
 
 const phaseEmfSchema = z.strictObject({
   V: within(PHYSICAL_RANGES.emfV).describe('open-circuit line-to-neutral EMF, V rms'),
-  angleDeg: z.number().min(-360).max(360).describe('angle, degrees'),
+  angleDeg: z.number().min(ANGLE_DEG.min).max(ANGLE_DEG.max).describe('angle, degrees'),
 });
 
 const transformerSchema = z
@@ -103,11 +79,11 @@ const conductorSchema = z
     rOhmPerKm: within(PHYSICAL_RANGES.ohmsPerKm).optional().describe('resistance per km of conductor, ohm/km'),
     xOhmPerKm: within(PHYSICAL_RANGES.ohmsPerKm).optional().describe('reactance per km of conductor, ohm/km (default 0.08 for a library size)'),
     mm2: within(PHYSICAL_RANGES.conductorMm2).optional().describe('metric size, mm² (resistance from IEC 60228 class 2)'),
-    awg: z.string().max(12).optional().describe('AWG size, e.g. "12" or "4/0" (resistance from NEC Chapter 9 Table 8)'),
+    awg: z.string().max(AWG_MAX_CHARS).optional().describe('AWG size, e.g. "12" or "4/0" (resistance from NEC Chapter 9 Table 8)'),
     kcmil: within(PHYSICAL_RANGES.conductorKcmil).optional().describe('size in kcmil, e.g. 250 (NEC Chapter 9 Table 8)'),
-    material: z.enum(['copper', 'aluminium', 'aluminum']).optional().describe('conductor metal for a library size; default copper'),
+    material: z.enum(CONDUCTOR_MATERIALS).optional().describe('conductor metal for a library size; default copper'),
     temperatureC: within(PHYSICAL_RANGES.conductorTemperatureC).optional().describe('conductor operating temperature, °C (default 70 for mm², 75 for AWG/kcmil)'),
-    parallel: z.int().min(1).max(12).optional().describe('conductors in parallel (2 = a doubled neutral); default 1'),
+    parallel: z.int().min(PARALLEL_CONDUCTORS.min).max(PARALLEL_CONDUCTORS.max).optional().describe('conductors in parallel (2 = a doubled neutral); default 1'),
     ratingA: within(PHYSICAL_RANGES.ratingA).optional().describe('current rating of this conductor, A'),
   })
   .describe('a conductor: r and x directly; or a length with rOhmPerKm, or with a size (mm2, awg or kcmil)');
@@ -127,7 +103,7 @@ const windingSchema = z
 /** "208Y/120", "400/230", "120/240": read into both figures; `written` keeps the text (it also tells the region). */
 const voltageNotationSchema = z
   .string()
-  .max(40)
+  .max(NOTATION_MAX_CHARS)
   .describe(`the trade's notation: ${NOTATION_ACCEPTED}`)
   .transform((text, ctx) => {
     const read = readVoltageNotation(text);
@@ -147,14 +123,14 @@ export const supplySchema = z.strictObject({
           lineToLine: within(PHYSICAL_RANGES.voltage).optional().describe('nominal line-to-line voltage, V'),
           lineToNeutral: within(PHYSICAL_RANGES.voltage).optional().describe('nominal line-to-neutral voltage, V'),
           // A validated spec keeps the notation it was read from, and must validate again as it is.
-          written: z.string().max(40).optional().describe('the notation this was read from (set by trivar; write the notation itself as the voltage)'),
+          written: z.string().max(NOTATION_MAX_CHARS).optional().describe('the notation this was read from (set by trivar; write the notation itself as the voltage)'),
         })
         .describe('give lineToLine or lineToNeutral'),
       voltageNotationSchema,
     ])
     .describe('nominal voltage: { lineToLine } or { lineToNeutral }, or notation such as "208Y/120", "400/230", "120/240"'),
-  frequencyHz: z.literal([50, 60]).describe('supply frequency, Hz'),
-  sequence: z.enum(['ABC', 'ACB']).optional().describe('phase sequence; default ABC'),
+  frequencyHz: z.literal(FREQUENCIES_HZ).describe('supply frequency, Hz'),
+  sequence: z.enum(PHASE_SEQUENCES).optional().describe('phase sequence; default ABC'),
   emf: z
     .strictObject({ A: phaseEmfSchema.optional(), B: phaseEmfSchema.optional(), C: phaseEmfSchema.optional() })
     .optional()
@@ -188,12 +164,12 @@ export const loadSchema = z.strictObject({
   circuit: z.string().min(1).optional().describe('circuit number or way on the board, for the panel schedule (default: position in the list)'),
   breakerA: within(PHYSICAL_RANGES.ratingA).optional().describe('rated current of the circuit breaker or fuse, A (shown in the panel schedule)'),
   poles: z
-    .literal([1, 2, 3])
+    .literal(BREAKER_POLES)
     .optional()
     .describe('poles of the breaker on line conductors (a 1P+N device is 1): 1 for a line-to-neutral load, 2 line-to-line, 3 three-phase'),
   connection: z.enum(CONNECTIONS).describe('where the load connects'),
   starPoint: z
-    .enum(['neutral', 'floating'])
+    .enum(STAR_POINTS)
     .optional()
     .describe('for ABC-star loads: star point tied to the neutral (default on 4-wire boards) or floating'),
   kW: within(PHYSICAL_RANGES.loadKW).optional().describe('active power at nominal voltage, kW (negative = generation)'),
@@ -201,7 +177,7 @@ export const loadSchema = z.strictObject({
   kVA: within(PHYSICAL_RANGES.loadKVA).optional().describe('apparent power at nominal voltage, kVA'),
   A: within(PHYSICAL_RANGES.loadA).optional().describe('current at nominal voltage, A (line current for three-phase loads)'),
   pf: within(PHYSICAL_RANGES.pf).optional().describe('displacement power factor, 0.01 <= pf <= 1'),
-  sense: z.enum(['lagging', 'leading']).optional().describe('whether pf is lagging (inductive, default) or leading'),
+  sense: z.enum(PF_SENSES).optional().describe('whether pf is lagging (inductive, default) or leading'),
   ohms: loadImpedanceSchema.optional().describe('impedance per phase (star) or per branch (delta), ohm'),
   model: z.enum(LOAD_MODELS).optional().describe('voltage dependence; default constant-power, constant-impedance for ohms'),
   zip: z

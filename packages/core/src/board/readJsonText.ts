@@ -47,24 +47,29 @@ function countKeys(value: unknown): number {
  * this larger than the keys JSON.parse keeps, whether written alike or through escapes.
  */
 function countKeyTokens(text: string): number {
+  // The text is valid JSON (JSON.parse read it): every quote outside a string opens one, so the
+  // scan jumps from quote to quote (indexOf runs natively; a character loop took longer on large files).
   let count = 0;
-  for (let i = 0; i < text.length; i++) {
-    if (text.charCodeAt(i) !== 0x22) continue;
-    i++;
-    for (;;) {
-      const c = text.charCodeAt(i);
-      if (c === 0x5c) i += 2;
-      else if (c === 0x22) break;
-      else i++;
-    }
-    let j = i + 1;
+  let open = text.indexOf('"');
+  while (open !== -1) {
+    let close = text.indexOf('"', open + 1);
+    while (close !== -1 && escaped(text, close)) close = text.indexOf('"', close + 1);
+    if (close === -1) return -1; // not JSON after all: no count matches, so the caller steps aside
+    let j = close + 1;
     for (;;) {
       const c = text.charCodeAt(j);
       if (c === 0x20 || c === 0x09 || c === 0x0a || c === 0x0d) j++;
       else break;
     }
     if (text.charCodeAt(j) === 0x3a) count++;
-    i = j - 1;
+    open = text.indexOf('"', j);
   }
   return count;
+}
+
+/** A quote preceded by an odd number of backslashes is part of the string. */
+function escaped(text: string, quote: number): boolean {
+  let backslashes = 0;
+  while (text.charCodeAt(quote - 1 - backslashes) === 0x5c) backslashes++;
+  return backslashes % 2 === 1;
 }

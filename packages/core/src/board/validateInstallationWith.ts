@@ -10,6 +10,7 @@ import type { BoardBaseSpec } from './boardSchema.js';
 import type { InstallationBaseSpec } from './installationSchema.js';
 import { validateBoardWith, type BoardFileChecks } from './validateBoardWith.js';
 import { readTradeSpellings } from './conventions/readTradeSpellings.js';
+import { isInstallationInput } from './installationInput.js';
 import { inFileNaming } from './conventions/issueNaming.js';
 
 /** What an installation file is checked against, and how a board file becomes one. */
@@ -23,8 +24,6 @@ export interface InstallationFileChecks<I extends InstallationBaseSpec, B extend
 
 export type InstallationValidationOf<I> = { ok: true; installation: I } | { ok: false; issues: InputIssue[] };
 
-/** True when a parsed file describes an installation (it has `boards`) rather than one board. */
-export const isInstallationInput = (input: unknown): boolean => typeof input === 'object' && input !== null && 'boards' in input;
 
 /** The installation a board file describes: its one board under the supply (the board's own fields only). */
 export function oneBoardInstallation<B extends BoardBaseSpec>(board: B) {

@@ -5,9 +5,11 @@
 import { InputError } from '../errors.js';
 import { BOARD_RULES } from '../board/boardRules.js';
 import { installationRulesWith } from '../board/installationRules.js';
-import { isInstallationInput, oneBoardInstallation, validateInstallationWith, type InstallationFileChecks, type InstallationValidationOf } from '../board/validateInstallationWith.js';
+import { oneBoardInstallation, validateInstallationWith, type InstallationFileChecks, type InstallationValidationOf } from '../board/validateInstallationWith.js';
+import { isInstallationInput } from '../board/installationInput.js';
 import { installationSchema, type BoardSpec, type InstallationSpec } from './boardFileSchema.js';
-import { BOARD_FILE_CHECKS, STUDY_BOARD_RULES } from './validateBoard.js';
+import { BOARD_FILE_CHECKS } from './validateBoard.js';
+import { STUDY_BOARD_RULES } from './boardFileRules.js';
 import type { HarmonicsSectionSpec, InstallationHarmonicsSectionSpec } from '../harmonics/harmonicsSpec.js';
 
 /** A board file's `harmonics:` section as the installation's: its bank on the one board. */

@@ -43,6 +43,9 @@ export const VOLTAGE_LIMIT_PRESETS = {
 } as const satisfies Record<string, VoltageLimitPreset>;
 
 export type VoltageLimitPresetName = keyof typeof VOLTAGE_LIMIT_PRESETS;
+/** Custom limits a file may set, % of nominal each way. */
+export const VOLTAGE_LIMIT_PERCENT = { min: 0, max: 50 } as const;
+
 export const VOLTAGE_LIMIT_PRESET_NAMES = Object.keys(VOLTAGE_LIMIT_PRESETS) as VoltageLimitPresetName[];
 
 /** The limits a board is judged against: a preset's, or the file's own percentages (`preset: 'custom'`). */

@@ -1,0 +1,146 @@
+/**
+ * The shortcut past the board schema: a board file's own fields (supply, feeder, loads,
+ * conventions, studies) checked as plain data, without zod. On a board the schema accepts
+ * it gives exactly the schema's output (same values, same key order); on anything else it
+ * gives undefined and the caller runs the schema, which words every problem. It refuses
+ * every study section and study load field, so the schema stays the one judge of those.
+ *
+ * Why: on a 1,000-load board the schema's per-load checks, and loading zod with every
+ * study's schemas, were a large part of `trivar solve`'s time (see the README's figures).
+ * Mirrors boardSchema.ts field by field, with the ranges and lists of boardRanges.ts;
+ * test/property/wellFormedBoard.test.ts holds it to the schema on random and mutated boards.
+ */
+import { firstOf, listOf, NOT_THIS_SHAPE, numberIn, oneOf, optional, required, strictObjectOf, textOf, trueOrFalse, wholeIn, type PlainShape } from '../_internal/plainShape.js';
+import type { BoardBaseSpec } from './boardSchema.js';
+import {
+  ANGLE_DEG,
+  AWG_MAX_CHARS,
+  BREAKER_POLES,
+  CONDUCTOR_MATERIALS,
+  CONNECTIONS,
+  FREQUENCIES_HZ,
+  LOAD_MODELS,
+  NOTATION_MAX_CHARS,
+  PARALLEL_CONDUCTORS,
+  PF_SENSES,
+  PHASE_SEQUENCES,
+  PHYSICAL_RANGES as R,
+  STAR_POINTS,
+  SYSTEMS,
+  type PhysicalRange,
+} from './boardRanges.js';
+import { readVoltageNotation } from './conventions/voltageNotation.js';
+import { REGIONS } from './conventions/region.js';
+import { PHASE_NAMINGS } from './conventions/phaseNames.js';
+import { VOLTAGE_LIMIT_PERCENT, VOLTAGE_LIMIT_PRESET_NAMES } from './conventions/voltageLimits.js';
+
+const within = (range: PhysicalRange) => numberIn(range.min, range.max, range.above);
+const impedanceOf = (r: PhysicalRange, x: PhysicalRange) => strictObjectOf({ r: required(within(r)), x: required(within(x)) });
+const impedance = impedanceOf(R.supplyOhms, R.supplyReactanceOhms);
+const byPhase = (shape: PlainShape) => strictObjectOf({ A: optional(shape), B: optional(shape), C: optional(shape) });
+
+const transformer = strictObjectOf({
+  kVA: required(within(R.transformerKVA)),
+  impedancePercent: required(within(R.impedancePercent)),
+  xOverR: required(within(R.xOverR)),
+});
+const winding = firstOf(transformer, impedance);
+
+const conductor = strictObjectOf({
+  r: optional(within(R.supplyOhms)),
+  x: optional(within(R.supplyOhms)),
+  lengthM: optional(within(R.lengthM)),
+  lengthFt: optional(within(R.lengthFt)),
+  rOhmPerKm: optional(within(R.ohmsPerKm)),
+  xOhmPerKm: optional(within(R.ohmsPerKm)),
+  mm2: optional(within(R.conductorMm2)),
+  awg: optional(textOf(0, AWG_MAX_CHARS)),
+  kcmil: optional(within(R.conductorKcmil)),
+  material: optional(oneOf(CONDUCTOR_MATERIALS)),
+  temperatureC: optional(within(R.conductorTemperatureC)),
+  parallel: optional(wholeIn(PARALLEL_CONDUCTORS.min, PARALLEL_CONDUCTORS.max)),
+  ratingA: optional(within(R.ratingA)),
+});
+
+/** The schema's transform of a voltage written as notation ("400/230"). */
+const voltageNotation: PlainShape = (v) => {
+  if (typeof v !== 'string' || v.length > NOTATION_MAX_CHARS) return NOT_THIS_SHAPE;
+  const read = readVoltageNotation(v);
+  return read.ok ? { lineToLine: read.notation.lineToLineV, lineToNeutral: read.notation.lineToNeutralV, written: read.notation.text } : NOT_THIS_SHAPE;
+};
+
+const supply = strictObjectOf({
+  system: required(oneOf(SYSTEMS)),
+  voltage: required(
+    firstOf(
+      strictObjectOf({
+        lineToLine: optional(within(R.voltage)),
+        lineToNeutral: optional(within(R.voltage)),
+        written: optional(textOf(0, NOTATION_MAX_CHARS)),
+      }),
+      voltageNotation,
+    ),
+  ),
+  frequencyHz: required(oneOf(FREQUENCIES_HZ)),
+  sequence: optional(oneOf(PHASE_SEQUENCES)),
+  emf: optional(byPhase(strictObjectOf({ V: required(within(R.emfV)), angleDeg: required(numberIn(ANGLE_DEG.min, ANGLE_DEG.max)) }))),
+  impedance: optional(firstOf(impedance, byPhase(impedance))),
+  transformer: optional(transformer),
+  zeroSequence: optional(impedance),
+  bank: optional(byPhase(winding)),
+  openDelta: optional(strictObjectOf({ 'A-B': optional(winding), 'B-C': optional(winding), 'C-A': optional(winding) })),
+});
+
+const feeder = strictObjectOf({
+  line: optional(firstOf(conductor, byPhase(conductor))),
+  neutral: optional(conductor),
+  lengthM: optional(within(R.lengthM)),
+  lengthFt: optional(within(R.lengthFt)),
+});
+
+const fraction = numberIn(0, 1);
+const load = strictObjectOf({
+  name: required(textOf(1)),
+  circuit: optional(textOf(1)),
+  breakerA: optional(within(R.ratingA)),
+  poles: optional(oneOf(BREAKER_POLES)),
+  connection: required(oneOf(CONNECTIONS)),
+  starPoint: optional(oneOf(STAR_POINTS)),
+  kW: optional(within(R.loadKW)),
+  kvar: optional(within(R.loadKvar)),
+  kVA: optional(within(R.loadKVA)),
+  A: optional(within(R.loadA)),
+  pf: optional(within(R.pf)),
+  sense: optional(oneOf(PF_SENSES)),
+  ohms: optional(impedanceOf(R.loadOhms, R.loadReactanceOhms)),
+  model: optional(oneOf(LOAD_MODELS)),
+  zip: optional(strictObjectOf({ z: required(fraction), i: required(fraction), p: required(fraction) })),
+});
+
+const percentBand = numberIn(VOLTAGE_LIMIT_PERCENT.min, VOLTAGE_LIMIT_PERCENT.max);
+const conventions = strictObjectOf({
+  region: optional(oneOf(REGIONS)),
+  phaseNames: optional(oneOf(PHASE_NAMINGS)),
+  voltageLimits: optional(firstOf(oneOf(VOLTAGE_LIMIT_PRESET_NAMES), strictObjectOf({ underPercent: required(percentBand), overPercent: required(percentBand) }))),
+});
+
+const board = strictObjectOf({
+  $schema: optional(textOf()),
+  name: optional(textOf(1)),
+  note: optional(textOf()),
+  supply: required(supply),
+  conventions: optional(conventions),
+  feeder: optional(feeder),
+  loads: required(listOf(load, 1)),
+  studies: optional(strictObjectOf({ openNeutral: optional(trueOrFalse) })),
+});
+
+/**
+ * The board as the schema would give it, when `input` (already in trivar's spelling, see
+ * readTradeSpellings) is a board file of the board's own fields that the schema accepts;
+ * otherwise undefined. Cross-field rules are not checked here.
+ */
+export function wellFormedBoardShape(input: unknown): BoardBaseSpec | undefined {
+  const out = board(input);
+  return out === NOT_THIS_SHAPE ? undefined : (out as BoardBaseSpec);
+}
