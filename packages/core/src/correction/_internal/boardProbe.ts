@@ -6,7 +6,7 @@
  */
 import type { Board } from '../../board/boardModel.js';
 import type { BoardResult } from '../../analysis/boardResult.js';
-import { analyseSolution, readLinePowers } from '../../analysis/analyseSolution.js';
+import { analyseSolution, readLinePowers, readSequenceCurrents, type SequenceReading } from '../../analysis/analyseSolution.js';
 import { compileBoard, solveCompiledBoard, type CompiledBoard, type SolveOptions } from '../../network/solveNetwork.js';
 import { addCorrectionEquipment, equipmentGroups, susceptanceFromKvar, type BranchSlot, type EquipmentGroup } from '../equipment.js';
 
@@ -18,6 +18,8 @@ export interface ProbeState {
   readonly lineP: readonly number[];
   readonly lineQ: readonly number[];
   readonly lineS: readonly number[];
+  /** Sequence currents and positive-sequence power (what a balancing compensator reads); null without three phases. */
+  readonly sequences: SequenceReading | null;
 }
 
 export interface BoardProbe {
@@ -56,14 +58,18 @@ export function createProbe(base: Board, slots: readonly BranchSlot[], name: str
       count++;
       const board = addCorrectionEquipment(base, groups(kvar));
       const solution = solveEquipped(board, solve);
-      // Most trial solves are read for line powers only: the whole analysis waits until asked for.
+      // Most trial solves are read for line powers (or sequence currents) only: the whole analysis waits until asked for.
       const lines = readLinePowers(solution);
       let result: BoardResult | undefined;
+      let sequences: SequenceReading | null | undefined;
       return {
         kvar: [...kvar],
         board,
         get result() {
           return (result ??= analyseSolution(solution));
+        },
+        get sequences() {
+          return sequences === undefined ? (sequences = readSequenceCurrents(solution)) : sequences;
         },
         lineP: lines.map((p) => p.kW),
         lineQ: lines.map((p) => p.kvar),
