@@ -86,6 +86,17 @@ function voltageRise(board: Board, capacitorKvar: number, before: BoardResult, a
  * v.check.met //=> true when the built bank meets the target
  * v.lightLoad?.leadingLines //=> [] when the fixed part keeps every line lagging at light load
  */
+/**
+ * The board without equipment, solved and analysed with the default options: the same for every
+ * arrangement a comparison verifies (and for a compensator's ideal solution), so solved once per board.
+ */
+const asIs = new WeakMap<Board, BoardResult>();
+function solvedAsIs(board: Board): BoardResult {
+  let result = asIs.get(board);
+  if (!result) asIs.set(board, (result = analyseSolution(solveNetwork(board))));
+  return result;
+}
+
 export function verifyCorrection(board: Board, options: VerifyCorrectionOptions): CorrectionVerification {
   const opts = parseOptions(verifyOptionsSchema, options, 'verifyCorrection options');
   const arrangement = opts.arrangement ?? 'star-bank';
@@ -101,7 +112,7 @@ export function verifyCorrection(board: Board, options: VerifyCorrectionOptions)
   const warn = (code: string, message: string, value: number | null = null, threshold: number | null = null) =>
     warnings.push({ code, message, path: null, value, threshold });
 
-  const before = solve(board);
+  const before = Object.keys(solveOptions).length === 0 ? solvedAsIs(board) : solve(board);
   const corrected = addCorrectionEquipment(board, equipment);
   const after = solve(corrected);
   const check = checkTarget(after, target, before);
