@@ -87,7 +87,7 @@ export const maxAbs = (v: readonly number[]): number => v.reduce((m, x) => Math.
 
 /**
  * Moves `pick` (k increasing indices below n) to the next k-element subset in lexicographic order, in
- * place (the order of `subsets`); false after the last. Start from 0 … k−1.
+ * place; false after the last. Start from 0 … k−1.
  */
 export function nextSubset(pick: Int32Array, k: number, n: number): boolean {
   let i = k - 1;
@@ -96,18 +96,4 @@ export function nextSubset(pick: Int32Array, k: number, n: number): boolean {
   pick[i]!++;
   for (let j = i + 1; j < k; j++) pick[j] = pick[j - 1]! + 1;
   return true;
-}
-
-/** Every k-element subset of {0 … n−1}, in lexicographic order. */
-export function* subsets(n: number, k: number): Generator<number[]> {
-  if (k > n || k < 0) return;
-  const pick = Array.from({ length: k }, (_, i) => i);
-  for (;;) {
-    yield [...pick];
-    let i = k - 1;
-    while (i >= 0 && pick[i] === n - k + i) i--;
-    if (i < 0) return;
-    pick[i]!++;
-    for (let j = i + 1; j < k; j++) pick[j] = pick[j - 1]! + 1;
-  }
 }
