@@ -7,18 +7,22 @@
 import type { Board } from '../../board/boardModel.js';
 import type { BoardResult } from '../../analysis/boardResult.js';
 import { analyseSolution, readLinePowers, readSequenceCurrents, type SequenceReading } from '../../analysis/analyseSolution.js';
-import { compileBoard, solveCompiledBoard, type CompiledBoard, type SolveOptions } from '../../network/solveNetwork.js';
+import { compileBoard, solveCompiledBoard, solveCompiledInstallation, type CompiledBoard, type NetworkSolution, type SolveOptions } from '../../network/solveNetwork.js';
+import type { MeteringPlace } from '../meteringPoint.js';
 import { addCorrectionEquipment, equipmentGroups, susceptanceFromKvar, type BranchSlot, type EquipmentGroup } from '../equipment.js';
 
 export interface ProbeState {
   readonly kvar: readonly number[];
   readonly board: Board;
+  /** The equipment's board. */
   readonly result: BoardResult;
-  /** Per line at the board: active power kW, reactive power kvar (+ lagging), apparent power kVA. */
+  /** Where the target is measured: the equipment's board, or the metering point (see meteringPoint.ts). */
+  readonly metered: BoardResult;
+  /** Per line where the target is measured: active power kW, reactive power kvar (+ lagging), apparent power kVA. */
   readonly lineP: readonly number[];
   readonly lineQ: readonly number[];
   readonly lineS: readonly number[];
-  /** Sequence currents and positive-sequence power (what a balancing compensator reads); null without three phases. */
+  /** The equipment's board: sequence currents and positive-sequence power (what a balancing compensator reads); null without three phases. */
   readonly sequences: SequenceReading | null;
 }
 
@@ -39,7 +43,9 @@ export interface BoardProbe {
  */
 const PROBE_SOLVE: SolveOptions = { tolerance: 1e-13, maxIterations: 400 };
 
-export function createProbe(base: Board, slots: readonly BranchSlot[], name: string, solveOptions: SolveOptions = {}): BoardProbe {
+export function createProbe(board: Board, slots: readonly BranchSlot[], name: string, solveOptions: SolveOptions = {}, meter: MeteringPlace | null = null): BoardProbe {
+  // With a metering point elsewhere every trial solves the installation the point is a board of.
+  const base = meter ? meter.inFrame(board) : board;
   const solve = { ...PROBE_SOLVE, ...solveOptions };
   let count = 0;
   const groups = (kvar: readonly number[]) =>
@@ -57,16 +63,21 @@ export function createProbe(base: Board, slots: readonly BranchSlot[], name: str
     at(kvar) {
       count++;
       const board = addCorrectionEquipment(base, groups(kvar));
-      const solution = solveEquipped(board, solve);
-      // Most trial solves are read for line powers (or sequence currents) only: the whole analysis waits until asked for.
-      const lines = readLinePowers(solution);
+      const { solution, metering } = solveEquipped(board, solve, meter);
+      // Most trial solves are read for line powers (or the bank board's sequence currents) only: the whole analysis waits until asked for.
+      const lines = readLinePowers(metering ?? solution);
       let result: BoardResult | undefined;
+      let metered: BoardResult | undefined;
       let sequences: SequenceReading | null | undefined;
+      const bankResult = () => (result ??= analyseSolution(solution));
       return {
         kvar: [...kvar],
         board,
         get result() {
-          return (result ??= analyseSolution(solution));
+          return bankResult();
+        },
+        get metered() {
+          return metering ? (metered ??= analyseSolution(metering)) : bankResult();
         },
         get sequences() {
           return sequences === undefined ? (sequences = readSequenceCurrents(solution)) : sequences;
@@ -86,10 +97,10 @@ export function createProbe(base: Board, slots: readonly BranchSlot[], name: str
  * changes, since a zero branch joins nothing (an all-zero floating star point is a dead node).
  * Every candidate's solve is the one `solveNetwork` would do: same network, same start.
  */
-function equippedSolver(base: Board): (board: Board, options: SolveOptions) => ReturnType<typeof solveCompiledBoard> {
+function equippedSolver(base: Board): (board: Board, options: SolveOptions, meter: MeteringPlace | null) => { solution: NetworkSolution; metering: NetworkSolution | null } {
   const compiled = new Map<string, CompiledBoard>();
   const baseLoads = base.loads.length;
-  return (board, options) => {
+  return (board, options, meter) => {
     const added = board.loads.slice(baseLoads).flatMap((l) => l.branches);
     const zeros = added.map((b) => (b.sNominal.re === 0 && b.sNominal.im === 0 ? '0' : '1')).join('');
     let c = compiled.get(zeros);
@@ -106,7 +117,9 @@ function equippedSolver(base: Board): (board: Board, options: SolveOptions) => R
         k++;
       }
     }
-    return solveCompiledBoard({ ...c, board }, options);
+    if (!meter) return { solution: solveCompiledBoard({ ...c, board }, options), metering: null };
+    const boards = solveCompiledInstallation(c.installation, options).boards;
+    return { solution: { ...boards[c.boardIndex]!, board }, metering: boards[meter.meterIndex]! };
   };
 }
 

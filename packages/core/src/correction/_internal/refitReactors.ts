@@ -46,6 +46,9 @@ function withOutputs(state: ProbeState, kvar: readonly number[]): ProbeState {
     get result() {
       return state.result;
     },
+    get metered() {
+      return state.metered;
+    },
     get sequences() {
       return state.sequences;
     },
