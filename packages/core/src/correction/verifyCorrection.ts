@@ -18,6 +18,7 @@ import { addCorrectionEquipment, type EquipmentGroup } from './equipment.js';
 import { scaleBoardLoads } from './scaleBoardLoads.js';
 import type { CorrectionVerification, CorrectionWarning, LightLoadCheck, VoltageRise } from './correctionResult.js';
 import { warningText } from './correctionWording.js';
+import { labellerOf } from '../board/conventions/phaseNames.js';
 import { beforeAfter, branchSizings, lineComparisons } from './_internal/branchReadings.js';
 import { checkRules, definedOnly, solveOptionsSchema } from './_internal/optionSchemas.js';
 import { parseOptions } from '../_internal/zodIssues.js';
@@ -102,6 +103,8 @@ export function verifyCorrection(board: Board, options: VerifyCorrectionOptions)
     warnings.push({ code, message, path: null, value, threshold });
 
   const before = solve(board);
+  // Warnings name lines the way the board file does (L1 or A).
+  const label = labellerOf(before.conventions.phaseNames);
   const corrected = addCorrectionEquipment(board, equipment);
   const after = solve(corrected);
   const check = checkTarget(after, target, before);
@@ -109,7 +112,7 @@ export function verifyCorrection(board: Board, options: VerifyCorrectionOptions)
   const low = checkTarget(solve(addCorrectionEquipment(board, equipment, { capacitanceFactor: 1 - minus })), target, before);
   const high = checkTarget(solve(addCorrectionEquipment(board, equipment, { capacitanceFactor: 1 + plus })), target, before);
   if (check.met && !low.met) warn('tolerance-low', warningText.toleranceLow(low.shortfalls));
-  if (high.leadingLines.length && !check.leadingLines.length) warn('tolerance-high', warningText.toleranceHigh(high.leadingLines));
+  if (high.leadingLines.length && !check.leadingLines.length) warn('tolerance-high', warningText.toleranceHigh(high.leadingLines.map(label)));
 
   const capacitorKvar = branches.reduce((s, b) => s + b.kvarAtAppliedV, 0);
   const rise = voltageRise(board, capacitorKvar, before, after, riseLimit);
@@ -137,7 +140,7 @@ export function verifyCorrection(board: Board, options: VerifyCorrectionOptions)
     const fixedOnly = equipment.map((g) => ({ ...g, branches: g.branches.map((b) => ({ ...b, susceptanceS: b.fixedSusceptanceS })) }));
     const fixedKvar = branchSizings(fixedOnly, lightCorrected, lightAfter).reduce((sum, b) => sum + b.kvarAtAppliedV, 0);
     const lightRise = voltageRise(board, fixedKvar, lightBefore, lightAfter, riseLimit);
-    if (leadingLines.length) warn('light-load-leading', warningText.lightLoadLeading(leadingLines));
+    if (leadingLines.length) warn('light-load-leading', warningText.lightLoadLeading(leadingLines.map(label)));
     if (lightRise.flagged) warn('voltage-rise-light-load', warningText.voltageRise('the fixed part at light load', Math.max(lightRise.estimatePercent ?? -Infinity, lightRise.solvedPercent), riseLimit), lightRise.solvedPercent, riseLimit);
     lightLoad = {
       fraction: opts.lightLoad.fraction,
