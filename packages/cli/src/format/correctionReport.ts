@@ -3,6 +3,7 @@ import { labellerOf, type BankSelection, type BankStep, type BeforeAfter, type B
 import { fixed, renderTable, section } from './textTable.js';
 import { headerLines } from './solveReport.js';
 import { wrapText } from './wrapText.js';
+import { meteringPointWords, meteringSection } from './meteringSection.js';
 
 const ARRANGEMENT_WORDS: Record<string, string> = {
   'star-bank': 'star-connected capacitor bank (one capacitor per phase)',
@@ -157,8 +158,8 @@ function selectionBlock(sel: BankSelection, label: PhaseLabeller): string {
   return out.join('\n');
 }
 
-function lineTable(v: CorrectionVerification): string {
-  const label = labelsOf(v);
+/** `label`: the board file's phase labels (L1 or A). */
+export function lineTable(v: Pick<CorrectionVerification, 'lines'>, label: PhaseLabeller): string {
   return renderTable(
     [
       { header: 'line', align: 'left' },
@@ -280,7 +281,7 @@ export function renderCorrectionReport(r: CorrectionReport): string {
   const parts = [
     headerLines(v.before).slice(0, 2).join('\n'),
     wrapText(`correction: ${ARRANGEMENT_WORDS[r.arrangement] ?? r.arrangement}`, '', '  '),
-    wrapText(`target: ${target}`, '', '  '),
+    wrapText(`target: ${target}${r.target.measuredAt === undefined ? '' : `; measured at ${meteringPointWords(r.target.measuredAt)}`}`, '', '  '),
     '',
     wrapText(`${STATUS_WORDS[r.status] ?? r.status} — ${r.summary}`, '', '  '),
     ...r.reasons.map((x) => wrapText(x, '  - ', '    ')),
@@ -295,7 +296,8 @@ export function renderCorrectionReport(r: CorrectionReport): string {
     parts.push(section('Sizing (continuous, before choosing units)') + sizingTable(r.sizing.branches, label) + shiftLines);
   }
   if (r.selection) parts.push(section('Bank as built from units') + selectionBlock(r.selection, label));
-  parts.push(section('Lines, before → after (verified by re-solving the board)') + lineTable(v));
+  if (v.metering) parts.push(meteringSection(v.metering, lineTable(v.metering, label)));
+  parts.push(section('Lines, before → after (verified by re-solving the board)') + lineTable(v, label));
   parts.push(section('Board, before → after') + boardLines(v));
   parts.push(section('Checks') + checksBlock(v, r.selection?.steps.some((s) => s.detuningFactor > 0) ?? false));
   parts.push(section('Warnings') + (r.warnings.length ? r.warnings.map((w) => wrapText(w.message, '  ! ', '    ')).join('\n') : '  none'));
