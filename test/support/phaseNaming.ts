@@ -17,8 +17,9 @@ export function inNumberedNames(text: string): string {
 /**
  * A phase, pair or branch label in A/B/C letters: a pair anywhere ("A-B", "C-N"), "line A", "phase B",
  * "lines A, C", the three-phase "ABC", a row label at a table's edge, or "A 0.950" in a list of figures.
+ * Not a column head in amperes ("highest line A  neutral A", "line A = √(a² + r²)").
  */
-export const LETTERED_LABEL = /(^|[\s(,:])(?:[ABC]-[ABCN]\b|lines? [ABC]\b|phases? [ABC]\b|ABC\b)|^ {2}[ABC] {2}|(^|[\s,:])[ABC] (?:[01]\.\d{3}|\d+(?:\.\d)? ?A\b)|>[ABC]</m;
+export const LETTERED_LABEL = /(^|[\s(,:])(?:[ABC]-[ABCN]\b|lines? [ABC]\b(?! {2}| =)|phases? [ABC]\b|ABC\b)|^ {2}[ABC] {2}\S|(^|[\s,:])[ABC] (?:[01]\.\d{3}|\d+(?:\.\d)? ?A\b)|>[ABC]</m;
 /** An L1/L2/L3 label anywhere. */
 export const NUMBERED_LABEL = /\bL[123]\b|L1L2L3/;
 
@@ -27,3 +28,14 @@ export function figuresOf(text: string): string[] {
   const bare = text.replace(/L1L2L3|\bL[123]\b|\bABC\b|\b[ABC]\b/g, '');
   return bare.match(/-?\d+(?:[.,]\d+)*/g) ?? [];
 }
+
+/** The text of an HTML or SVG document, one text node a line, entities as written. */
+export const textOfMarkup = (markup: string): string =>
+  markup
+    .replace(/<style[\s\S]*?<\/style>/g, '')
+    .replace(/<[^>]*>/g, '\n')
+    .split('\n')
+    .map((l) => l.trim())
+    .filter((l) => l !== '')
+    .map((l) => `  ${l}  `)
+    .join('\n');
