@@ -9,9 +9,10 @@ import { mkdtempSync, readdirSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { beforeAll, describe, expect, it } from 'vitest';
-import { checkHandFigures, correctBoard, labellerOf, normaliseBoard, parseBoard, readBoardText } from '@trivar/core';
+import { checkHandFigures, correctBoard, labellerOf, normaliseBoard, parseBoard, readBoardText, studyHarmonics } from '@trivar/core';
 import { renderCorrectionReport } from '../../packages/cli/src/format/correctionReport.js';
 import { renderHandCheckReport } from '../../packages/cli/src/format/handCheckReport.js';
+import { renderHarmonicsReport } from '../../packages/cli/src/format/harmonicsReport.js';
 import { figuresOf, inNumberedNames, LETTERED_LABEL, NUMBERED_LABEL, textOfMarkup } from '../support/phaseNaming.js';
 import { ROOT, runTrivar } from '../cli/runTrivar.js';
 
@@ -186,3 +187,26 @@ describe('profile and report follow the file naming (built CLI)', () => {
   });
 });
 
+describe('harmonics on a split-phase board speaks of two lines', () => {
+  it('like switch-mode loads on L1 and L2: the odd harmonics cancel in the neutral, and the note says so instead of "three phases"', () => {
+    // Invented cottage panel: the same desk load on each 120 V line of a 120/240 V service.
+    const text = [
+      'name: Test cottage panel',
+      'supply: { system: split-phase, voltage: { lineToNeutral: 120 }, frequencyHz: 60, transformer: { kVA: 50, impedancePercent: 2.5, xOverR: 2 } }',
+      'loads:',
+      '  - { name: Desks east, connection: L1-N, kW: 2, pf: 0.97, spectrum: switch-mode }',
+      '  - { name: Desks west, connection: L2-N, kW: 2, pf: 0.97, spectrum: switch-mode }',
+    ].join('\n');
+    const h = studyHarmonics(readBoardText(text));
+    const line3 = h.lines[0]!.current.orders.find((o) => o.order === 3)!.magnitude;
+    const neutral3 = h.neutral!.current.orders.find((o) => o.order === 3)?.magnitude ?? 0;
+    // i₂(t) = i₁(t − T/2): each odd order of the two lines arrives in opposition at the neutral bar.
+    expect(line3).toBeGreaterThan(1);
+    expect(neutral3).toBeLessThan(1e-6 * line3);
+    expect(h.neutral!.practice).toMatch(/^on a split-phase board the two lines are 180° apart, so odd harmonics \(triplens included\)/);
+    expect(h.neutral!.practice).not.toMatch(/three phases/);
+    const out = renderHarmonicsReport(h);
+    expect(out).not.toMatch(/three phases|\bL3\b|\bC\b/);
+    expect(out).not.toMatch(LETTERED_LABEL);
+  });
+});

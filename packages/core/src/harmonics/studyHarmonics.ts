@@ -19,7 +19,7 @@ import { IEEE_519_SOURCE, ieee519OrderLimit, ieee519Row } from './ieee519.js';
 import { checkVoltageDistortion } from './voltageDistortion.js';
 import { HARMONICS_DEFAULTS } from './harmonicsDefaults.js';
 import type { HarmonicsBoardSpec } from './harmonicsSpec.js';
-import { harmonicsCautions, harmonicsWarningText, NEUTRAL_PRACTICE } from './harmonicsWording.js';
+import { harmonicsCautions, harmonicsWarningText, neutralPractice } from './harmonicsWording.js';
 import type { CapacitorDuty, DutyCase, HarmonicLineReading, HarmonicsReport, HarmonicsWarning, NeutralCheck, ResonanceScan, TddCheck } from './harmonicsResult.js';
 import { conventionsOf } from '../board/conventions/boardConventions.js';
 import { regionWords } from '../board/conventions/regionWords.js';
@@ -57,7 +57,7 @@ function neutralCheck(board: Board, orders: readonly OrderSolution[], lines: rea
     ratingA: rating,
     loadingPercent: rating ? (100 * current.rms) / rating : null,
     overloaded: rating !== null && current.rms > rating,
-    practice: NEUTRAL_PRACTICE,
+    practice: neutralPractice(board.system),
   };
 }
 
@@ -194,7 +194,7 @@ export function analyseHarmonics(board: Board, model: HarmonicModel, options: Ha
   if (scan.shortCircuitKVA === null) warn('ideal-source', harmonicsWarningText.idealSource);
   if (neutral?.overloaded) warn('neutral-overload', harmonicsWarningText.neutralOverload(neutral.current.rms, neutral.ratingA!), neutral.current.rms, neutral.ratingA);
   if (neutral?.ratioToPhase !== null && neutral?.ratioToPhase !== undefined && neutral.ratioToPhase > 1)
-    warn('neutral-above-phase', harmonicsWarningText.neutralAbovePhase(neutral.ratioToPhase), neutral.ratioToPhase, 1);
+    warn('neutral-above-phase', harmonicsWarningText.neutralAbovePhase(neutral.ratioToPhase, board.system === 'split-phase'), neutral.ratioToPhase, 1);
   const voltageDistortion = checkVoltageDistortion(lines, lineToLine);
   const { individualLimitPercent: individual, thdLimitPercent: thdLimit } = voltageDistortion;
   for (const bus of voltageDistortion.buses)
