@@ -246,8 +246,8 @@ export { studyScenarios } from './profile/studyScenarios.js';
 export type { SwitchingFromBank } from './profile/switchingFromBank.js';
 export { switchingFromBank } from './profile/switchingFromBank.js';
 // Regional conventions: phase names, voltage notation, voltage limits, region wording.
-export type { PhaseNaming } from './board/conventions/phaseNames.js';
-export { PHASE_NAMINGS, labelIn, phaseLabels } from './board/conventions/phaseNames.js';
+export type { PhaseNaming, PhaseLabel, PhaseLabeller } from './board/conventions/phaseNames.js';
+export { PHASE_NAMINGS, labelIn, labellerOf, phaseLabels } from './board/conventions/phaseNames.js';
 export type { VoltageNotation, NotationReading } from './board/conventions/voltageNotation.js';
 export { readVoltageNotation, writeVoltageNotation, NOTATION_RATIO_TOLERANCE } from './board/conventions/voltageNotation.js';
 export type { VoltageLimits, VoltageLimitPreset, VoltageLimitPresetName } from './board/conventions/voltageLimits.js';

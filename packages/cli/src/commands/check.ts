@@ -1,5 +1,5 @@
 /** `trivar check`: solve the board with the capacitors of a hand calculation and explain every difference. */
-import { addHandCapacitors, checkHandFigures, InputError, isInstallationInput, normaliseBoard, parseBoard, readBoardText, renderCurrentTriangles, solveBoardModel, type HandCheckResult } from '@trivar/core';
+import { addHandCapacitors, checkHandFigures, conventionsOf, InputError, isInstallationInput, labellerOf, normaliseBoard, parseBoard, readBoardText, renderCurrentTriangles, solveBoardModel, type HandCheckResult } from '@trivar/core';
 import { assertNotInput, writeOutputFile } from '../outputFiles.js';
 import type { CliIo } from '../io.js';
 import { EXIT, UsageError } from '../exitCodes.js';
@@ -45,6 +45,8 @@ export async function runCheck(boardFile: string, figuresFile: string, options: 
     });
     writeOutputFile(options.diagram, svg);
   }
-  writeResult(io, result, options.json, renderHandCheckReport);
+  // Lines and branches as the board file names them (L1-L2 or A-B).
+  const label = labellerOf(conventionsOf(board).phaseNames);
+  writeResult(io, result, options.json, (r) => renderHandCheckReport(r, label));
   return result;
 }

@@ -4,6 +4,8 @@ import { availableParallelism } from 'node:os';
 import { join } from 'node:path';
 import {
   checkIntervalSequence,
+  conventionsOf,
+  labellerOf,
   correctBoard,
   switchingFromBank,
   type SwitchingFromBank,
@@ -115,24 +117,26 @@ export async function computeProfileStudy(spec: ReturnType<typeof parseBoard>, d
 export async function runProfile(file: string, options: ProfileCommandOptions, io: CliIo): Promise<ProfileStudy | null> {
   const spec = parseBoard(readBoardText(await io.readSource(file)));
   const board = normaliseBoard(spec);
+  // Tables, CSV columns and chart series name lines and phases the way the board file does.
+  const label = labellerOf(conventionsOf(board).phaseNames);
   const zone = options.timeZone ?? 'UTC';
   if (!isKnownTimeZone(zone)) throw new UsageError(`--time-zone: "${zone}" is not a time zone this system knows (expected an IANA name such as Europe/Lisbon or America/Chicago)`);
   if (!options.data) {
     if (!spec.profile?.scenarios) throw new UsageError('give the interval data with --data <file.csv>, or scenarios under profile.scenarios in the board file (see trivar profile --help)');
     const result = studyScenarios(board, spec.profile);
-    writeResult(io, result, options.json, renderScenarioReport);
+    writeResult(io, result, options.json, (r) => renderScenarioReport(r, label));
     return null;
   }
   const chartFiles = options.charts ? CHART_FILES.map((name) => join(options.charts!, name)) : [];
   assertNotInput([options.summaryCsv, options.intervalsCsv, ...chartFiles].filter((x): x is string => x !== undefined), [file, options.data]);
   const study = await computeProfileStudy(spec, options.data, options, io);
   const currency = spec.profile?.tariff?.currency ?? 'units';
-  if (options.summaryCsv) writeOutputFile(options.summaryCsv, summaryCsv(study.result));
-  if (options.intervalsCsv) writeOutputFile(options.intervalsCsv, intervalCsv(study));
+  if (options.summaryCsv) writeOutputFile(options.summaryCsv, summaryCsv(study.result, label));
+  if (options.intervalsCsv) writeOutputFile(options.intervalsCsv, intervalCsv(study, label));
   if (options.charts) {
     mkdirSync(options.charts, { recursive: true });
-    writeProfileCharts(study, (name, text) => writeOutputFile(join(options.charts!, name), text));
+    writeProfileCharts(study, (name, text) => writeOutputFile(join(options.charts!, name), text), label);
   }
-  writeResult(io, study.result, options.json, (r) => renderProfileReport(r, currency));
+  writeResult(io, study.result, options.json, (r) => renderProfileReport(r, currency, label));
   return study;
 }

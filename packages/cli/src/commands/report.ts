@@ -9,6 +9,7 @@ import {
   correctInstallation,
   InputError,
   isInstallationInput,
+  labellerOf,
   normaliseBoard,
   normaliseInstallation,
   parseBoard,
@@ -25,6 +26,7 @@ import {
   type Installation,
   type InstallationSpec,
   type BoardSpec,
+  type PhaseNaming,
   type ReportDocument,
   type ReportSection,
 } from '@trivar/core';
@@ -51,7 +53,7 @@ export interface ReportCommandOptions {
 }
 
 /** The profile study of the interval data, as a report section with its charts. */
-async function profileReportSection(spec: BoardSpec, options: ReportCommandOptions, io: CliIo): Promise<ReportSection> {
+async function profileReportSection(spec: BoardSpec, options: ReportCommandOptions, io: CliIo, naming: PhaseNaming): Promise<ReportSection> {
   const study = await computeProfileStudy(spec, options.profileData!, options.timeZone ? { timeZone: options.timeZone } : {}, io);
   const charts: { name: string; caption: string; svg: string }[] = [];
   const captions: Readonly<Record<string, string>> = {
@@ -59,8 +61,8 @@ async function profileReportSection(spec: BoardSpec, options: ReportCommandOptio
     'power-factor.svg': 'Board power factor over the period',
     'load-duration.svg': 'Load-duration curves: hours each current was reached or exceeded',
   };
-  writeProfileCharts(study, (name, svg) => charts.push({ name: name.replace(/\.svg$/, ''), caption: captions[name] ?? name, svg }));
-  return profileSection(study.result, charts);
+  writeProfileCharts(study, (name, svg) => charts.push({ name: name.replace(/\.svg$/, ''), caption: captions[name] ?? name, svg }), labellerOf(naming));
+  return profileSection(study.result, charts, naming);
 }
 
 /** The hand check of `board` with its triangle drawing; problems in the figures are said to be in that file. */
@@ -86,7 +88,7 @@ async function boardDocument(raw: unknown, figures: unknown, options: ReportComm
   const correction = options.correction !== false && spec.correction?.arrangement ? correctBoard(board, spec.correction) : null;
   const wantsHarmonics = spec.harmonics !== undefined || spec.loads.some((l) => l.spectrum !== undefined);
   const harmonics = options.harmonics !== false && wantsHarmonics ? studyHarmonics(raw) : null;
-  const studySections = options.profileData ? [await profileReportSection(spec, options, io)] : [];
+  const studySections = options.profileData ? [await profileReportSection(spec, options, io, result.conventions.phaseNames)] : [];
   const handCheck = figures === null ? null : handCheckOf(board, figures, options.handFigures!);
   return buildBoardReport({ spec, result, correction, harmonics, studySections, handCheck });
 }

@@ -1,5 +1,5 @@
 /** CorrectionReport → the human-readable report of `trivar correct` (fits 100 columns). */
-import type { BankSelection, BankStep, BeforeAfter, BranchSizing, CompensatorSizing, ControllerSettings, CorrectionReport, CorrectionVerification } from '@trivar/core';
+import { labellerOf, type BankSelection, type BankStep, type BeforeAfter, type BranchSizing, type CompensatorSizing, type ControllerSettings, type CorrectionReport, type CorrectionVerification, type PhaseLabeller } from '@trivar/core';
 import { fixed, renderTable, section } from './textTable.js';
 import { headerLines } from './solveReport.js';
 import { wrapText } from './wrapText.js';
@@ -23,6 +23,8 @@ const STATUS_WORDS: Record<string, string> = {
 const arrow = (x: BeforeAfter, digits: number, unit = '') => `${fixed(x.before, digits)}${unit} → ${fixed(x.after, digits)}${unit}`;
 const senseWord = (s: string) => (s === 'lagging' ? 'lag' : s === 'leading' ? 'lead' : '');
 const indentLines = (lines: readonly string[]) => lines.map((l) => wrapText(l, '  ', '    ')).join('\n');
+/** Phases, pairs and branches as the board file names them (L1-L2 or A-B); the study's data keys stay A/B/C. */
+const labelsOf = (v: CorrectionVerification): PhaseLabeller => labellerOf(v.before.conventions.phaseNames);
 
 
 /** A PF to 3 decimals; a line with no current has none. */
@@ -42,7 +44,7 @@ function elementText(b: BranchSizing): string {
 }
 
 /** The continuous (ideal-size) elements: what each branch needs before units are chosen. */
-function sizingTable(branches: readonly BranchSizing[]): string {
+function sizingTable(branches: readonly BranchSizing[], label: PhaseLabeller): string {
   return renderTable(
     [
       { header: 'branch', align: 'left' },
@@ -52,17 +54,19 @@ function sizingTable(branches: readonly BranchSizing[]): string {
       { header: 'kvar@applied' },
       { header: 'A' },
     ],
-    branches.map((b) => [b.branch, elementText(b), fixed(b.kvarAtNominalV, 2), fixed(b.appliedV, 1), fixed(b.kvarAtAppliedV, 2), fixed(b.currentA, 2)]),
+    branches.map((b) => [label(b.branch), elementText(b), fixed(b.kvarAtNominalV, 2), fixed(b.appliedV, 1), fixed(b.kvarAtAppliedV, 2), fixed(b.currentA, 2)]),
   );
 }
 
 /** The branches of a step, short: a three-branch step by its connection. */
-const branchWords = (s: BankStep) =>
-  s.branches.length === 3 ? (s.branches[0]!.endsWith('-N') ? 'ABC star-N' : s.branches[0]!.endsWith('-star') ? 'ABC star' : 'ABC delta') : s.branches.join(' ');
+const branchWords = (s: BankStep, label: PhaseLabeller) =>
+  s.branches.length === 3
+    ? `${label('ABC')} ${s.branches[0]!.endsWith('-N') ? 'star-N' : s.branches[0]!.endsWith('-star') ? 'star' : 'delta'}`
+    : s.branches.map(label).join(' ');
 const unitWords = (s: BankStep) => `${s.unit.kind === 'three-phase' ? '3-ph' : '1-ph'} ${fixed(s.unit.ratedKvar, 2)} kvar ${fixed(s.unit.ratedV, 0)} V`;
 const partWords: Record<BankStep['part'], string> = { fixed: 'fixed', balanced: 'equal', trim: 'trim', single: 'single' };
 
-function stepsTable(sel: BankSelection): string {
+function stepsTable(sel: BankSelection, label: PhaseLabeller): string {
   return renderTable(
     [
       { header: 'step', align: 'left' },
@@ -78,7 +82,7 @@ function stepsTable(sel: BankSelection): string {
     sel.steps.map((s) => [
       s.output === null ? '-' : String(s.output),
       partWords[s.part],
-      branchWords(s),
+      branchWords(s, label),
       String(s.units),
       unitWords(s),
       fixed(s.nameplateKvar, 2),
@@ -93,15 +97,15 @@ function stepsTable(sel: BankSelection): string {
 const emptyWindow = (s: BankSelection['selections'][number]) => s.maximumCapacitanceUF !== null && s.maximumCapacitanceUF < s.minimumCapacitanceUF;
 
 /** The two bounds of an empty window, with enough decimals that they read differently. */
-function emptyWindowNote(sel: BankSelection, s: BankSelection['selections'][number]): string {
+function emptyWindowNote(sel: BankSelection, s: BankSelection['selections'][number], label: PhaseLabeller): string {
   const hi = s.maximumCapacitanceUF ?? 0;
   let d = 1;
   while (d < 4 && fixed(s.minimumCapacitanceUF, d) === fixed(hi, d)) d++;
   const tol = sel.capacitanceTolerance;
-  return `${s.branch}: no capacitance satisfies both tolerance ends — meeting the target at −${tol.minusPercent} % needs at least ${fixed(s.minimumCapacitanceUF, d)} µF nominal, keeping every line within its bounds at +${tol.plusPercent} % allows at most ${fixed(hi, d)} µF`;
+  return `${label(s.branch)}: no capacitance satisfies both tolerance ends — meeting the target at −${tol.minusPercent} % needs at least ${fixed(s.minimumCapacitanceUF, d)} µF nominal, keeping every line within its bounds at +${tol.plusPercent} % allows at most ${fixed(hi, d)} µF`;
 }
 
-function branchTable(sel: BankSelection): string {
+function branchTable(sel: BankSelection, label: PhaseLabeller): string {
   const table = renderTable(
     [
       { header: 'branch', align: 'left' },
@@ -113,7 +117,7 @@ function branchTable(sel: BankSelection): string {
       { header: 'V nom / max / rating ≥', align: 'left' },
     ],
     sel.selections.map((s) => [
-      s.branch,
+      label(s.branch),
       emptyWindow(s) ? 'none (see below)' : `${fixed(s.minimumCapacitanceUF, 1)} – ${s.maximumCapacitanceUF === null ? '?' : fixed(s.maximumCapacitanceUF, 1)}`,
       fixed(s.designCapacitanceUF, 1),
       fixed(s.fixedCapacitanceUF, 1),
@@ -122,7 +126,7 @@ function branchTable(sel: BankSelection): string {
       `${fixed(s.nominalV, 0)} / ${fixed(s.highestVoltageV, 0)} / ${fixed(s.requiredRatedV, 0)}`,
     ]),
   );
-  const notes = sel.selections.filter(emptyWindow).map((s) => emptyWindowNote(sel, s));
+  const notes = sel.selections.filter(emptyWindow).map((s) => emptyWindowNote(sel, s, label));
   return notes.length ? `${table}\n${indentLines(notes)}` : table;
 }
 
@@ -136,12 +140,12 @@ function controllerLines(c: ControllerSettings): string[] {
   ];
 }
 
-function selectionBlock(sel: BankSelection): string {
+function selectionBlock(sel: BankSelection, label: PhaseLabeller): string {
   const out: string[] = [];
   out.push(
     `  delivered ${fixed(sel.deliveredKvar, 2)} kvar at the solved voltage · nameplate ${fixed(sel.nameplateKvar, 2)} kvar · ${sel.units} unit${sel.units === 1 ? '' : 's'} · ${sel.steps.filter((s) => s.output !== null).length} switched step(s)`,
   );
-  if (sel.steps.length) out.push(stepsTable(sel));
+  if (sel.steps.length) out.push(stepsTable(sel, label));
   out.push(
     indentLines([
       `units from the ${sel.catalogueTitle}${sel.catalogue === 'typical' ? ` — ${sel.catalogueNote}` : ''}`,
@@ -149,12 +153,13 @@ function selectionBlock(sel: BankSelection): string {
       `chosen for ${sel.cost.statement} (cost ${fixed(sel.cost.value, 1)})`,
     ]),
   );
-  out.push(branchTable(sel));
+  out.push(branchTable(sel, label));
   if (sel.controller) out.push(`  Controller\n${indentLines(controllerLines(sel.controller).map((l) => `  ${l}`))}`);
   return out.join('\n');
 }
 
-export function lineTable(v: Pick<CorrectionVerification, 'lines'>): string {
+/** `label`: the board file's phase labels (L1 or A). */
+export function lineTable(v: Pick<CorrectionVerification, 'lines'>, label: PhaseLabeller): string {
   return renderTable(
     [
       { header: 'line', align: 'left' },
@@ -164,7 +169,7 @@ export function lineTable(v: Pick<CorrectionVerification, 'lines'>): string {
       { header: 'PF', align: 'left' },
     ],
     v.lines.map((l) => [
-      l.phase,
+      label(l.phase),
       arrow(l.currentA, 1),
       arrow(l.activeCurrentA, 1),
       arrow(l.reactiveCurrentA, 1),
@@ -204,9 +209,10 @@ function boardLines(v: CorrectionVerification): string {
 /** `detuned`: the bank's steps sit behind reactors, so √(S_sc/Qc) does not apply (the harmonic check covers it). */
 function checksBlock(v: CorrectionVerification, detuned = false): string {
   const out: string[] = [];
+  const label = labelsOf(v);
   const t = v.tolerance;
   out.push(
-    `capacitance ×${t.low.capacitanceFactor}: target ${t.low.check.met ? 'met' : 'NOT met'} · ×${t.high.capacitanceFactor}: ${t.high.check.leadingLines.length ? `lines ${t.high.check.leadingLines.join(', ')} lead` : 'no line leads'}`,
+    `capacitance ×${t.low.capacitanceFactor}: target ${t.low.check.met ? 'met' : 'NOT met'} · ×${t.high.capacitanceFactor}: ${t.high.check.leadingLines.length ? `lines ${t.high.check.leadingLines.map(label).join(', ')} lead` : 'no line leads'}`,
   );
   const vr = v.voltageRise;
   out.push(
@@ -221,9 +227,9 @@ function checksBlock(v: CorrectionVerification, detuned = false): string {
   );
   if (v.lightLoad) {
     const ll = v.lightLoad;
-    const lines = ll.lines.map((l) => `${l.phase} ${pfFigure(l.pf)} ${senseWord(l.sense)}`.trim()).join(', ');
+    const lines = ll.lines.map((l) => `${label(l.phase)} ${pfFigure(l.pf)} ${senseWord(l.sense)}`.trim()).join(', ');
     out.push(
-      `light load (${fixed(ll.fraction * 100, 0)} % of the loads, fixed part ${fixed(ll.fixedKvar, 2)} kvar only): ${lines || 'no lines'}${ll.ok ? ' — no line leads' : ` — LEADS on ${ll.leadingLines.join(', ')}`}; voltage rise ${fixed(ll.voltageRise.solvedPercent, 2)} %`,
+      `light load (${fixed(ll.fraction * 100, 0)} % of the loads, fixed part ${fixed(ll.fixedKvar, 2)} kvar only): ${lines || 'no lines'}${ll.ok ? ' — no line leads' : ` — LEADS on ${ll.leadingLines.map(label).join(', ')}`}; voltage rise ${fixed(ll.voltageRise.solvedPercent, 2)} %`,
     );
   }
   return indentLines(out);
@@ -237,25 +243,25 @@ function balanceLine(r: CorrectionReport): string[] {
   return [`balance as built: |I2|/|I1| ${fixed(b.negativeSequencePercent, 1)} % (target ≤ ${fixed(t.maxNegativeSequencePercent, 0)} %)${neutral} — ${b.met ? 'met' : 'NOT met'}`];
 }
 
-function compensatorBlock(c: CompensatorSizing, ideal: CorrectionVerification | null, resizing: CorrectionReport['reactorResizing']): string {
-  const res = (label: string, s: CompensatorSizing['ideal']) =>
-    `${label}: |I2|/|I1| ${fixed(s.residual.negativeSequenceCurrentPercent, 2)} %, |I0|/|I1| ${fixed(s.residual.zeroSequenceCurrentPercent, 2)} %` +
+function compensatorBlock(c: CompensatorSizing, ideal: CorrectionVerification | null, resizing: CorrectionReport['reactorResizing'], label: PhaseLabeller): string {
+  const res = (title: string, s: CompensatorSizing['ideal']) =>
+    `${title}: |I2|/|I1| ${fixed(s.residual.negativeSequenceCurrentPercent, 2)} %, |I0|/|I1| ${fixed(s.residual.zeroSequenceCurrentPercent, 2)} %` +
     (s.residual.neutralCurrentA === null ? '' : `, neutral ${fixed(s.residual.neutralCurrentA, 2)} A`) +
     (s.residual.positiveSequencePf === null ? '' : `, PF1+ ${fixed(s.residual.positiveSequencePf, 3)}`) +
-    (s.reactorBranches.length ? ` — reactors on ${s.reactorBranches.join(', ')}` : '');
+    (s.reactorBranches.length ? ` — reactors on ${s.reactorBranches.map(label).join(', ')}` : '');
   return [
     `  ideal solution (may need reactors), re-solved:`,
-    sizingTable(c.ideal.branches),
+    sizingTable(c.ideal.branches, label),
     indentLines([res('ideal residual', c.ideal)]),
-    ideal ? `  ideal solution verified: lines ${ideal.lines.map((l) => `${l.phase} ${pfFigure(l.pf.after)}`).join(', ')}` : '',
+    ideal ? `  ideal solution verified: lines ${ideal.lines.map((l) => `${label(l.phase)} ${pfFigure(l.pf.after)}`).join(', ')}` : '',
     '',
     indentLines(['best capacitor-only solution (least remaining unbalance and reactive error, no line made to lead):']),
-    sizingTable(c.capacitorOnly.branches),
+    sizingTable(c.capacitorOnly.branches, label),
     indentLines([res('capacitor-only residual', c.capacitorOnly)]),
     indentLines([
       c.recommended === 'ideal'
         ? resizing?.used
-          ? `built: the ideal solution with capacitors from units and the reactors sized again beside them (${resizing.reactors.map((r) => `${r.branch} ${fixed(r.sizedKvar, 2)} → ${fixed(r.resizedKvar, 2)} kvar`).join(', ')}), because capacitors alone miss the target`
+          ? `built: the ideal solution with capacitors from units and the reactors sized again beside them (${resizing.reactors.map((r) => `${label(r.branch)} ${fixed(r.sizedKvar, 2)} → ${fixed(r.resizedKvar, 2)} kvar`).join(', ')}), because capacitors alone miss the target`
           : 'built: the ideal solution (capacitors from units, reactors as sized), because capacitors alone miss the target'
         : 'built: the capacitor-only solution',
     ]),
@@ -270,6 +276,7 @@ const FLOATING_STAR_NOTE =
 
 export function renderCorrectionReport(r: CorrectionReport): string {
   const v = r.verification;
+  const label = labelsOf(v);
   const target = `${r.target.statement}; PF ≥ ${boundFigure(r.target.pf)}${r.target.leading === 'never' ? ', never leading' : ', leading allowed'}${r.target.maxLaggingPf === null ? '' : `, at most ${fixed(r.target.maxLaggingPf, 3)} lagging`}`;
   const parts = [
     headerLines(v.before).slice(0, 2).join('\n'),
@@ -280,17 +287,17 @@ export function renderCorrectionReport(r: CorrectionReport): string {
     ...r.reasons.map((x) => wrapText(x, '  - ', '    ')),
     ...balanceLine(r).map((x) => wrapText(x, '  ', '    ')),
   ];
-  if (r.sizing.arrangement === 'balancing-compensator') parts.push(section('Compensator sizing') + compensatorBlock(r.sizing, r.idealVerification, r.reactorResizing));
+  if (r.sizing.arrangement === 'balancing-compensator') parts.push(section('Compensator sizing') + compensatorBlock(r.sizing, r.idealVerification, r.reactorResizing, label));
   else {
     const shift = r.sizing.starPointShift;
     const shiftLines = shift
       ? `\n${indentLines([`floating star point of the bank: ${fixed(shift.magnitude, 2)} V from the centroid of the line voltages`, FLOATING_STAR_NOTE])}`
       : '';
-    parts.push(section('Sizing (continuous, before choosing units)') + sizingTable(r.sizing.branches) + shiftLines);
+    parts.push(section('Sizing (continuous, before choosing units)') + sizingTable(r.sizing.branches, label) + shiftLines);
   }
-  if (r.selection) parts.push(section('Bank as built from units') + selectionBlock(r.selection));
-  if (v.metering) parts.push(meteringSection(v.metering, lineTable(v.metering)));
-  parts.push(section('Lines, before → after (verified by re-solving the board)') + lineTable(v));
+  if (r.selection) parts.push(section('Bank as built from units') + selectionBlock(r.selection, label));
+  if (v.metering) parts.push(meteringSection(v.metering, lineTable(v.metering, label)));
+  parts.push(section('Lines, before → after (verified by re-solving the board)') + lineTable(v, label));
   parts.push(section('Board, before → after') + boardLines(v));
   parts.push(section('Checks') + checksBlock(v, r.selection?.steps.some((s) => s.detuningFactor > 0) ?? false));
   parts.push(section('Warnings') + (r.warnings.length ? r.warnings.map((w) => wrapText(w.message, '  ! ', '    ')).join('\n') : '  none'));

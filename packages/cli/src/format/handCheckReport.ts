@@ -1,5 +1,5 @@
 /** Text report of `trivar check`: the textbook working, hand vs solved line by line, and the effects behind each difference. */
-import { handCheckEffectRows, type HandCheckResult, type PowerFactorSense } from '@trivar/core';
+import { handCheckEffectRows, labellerOf, type HandCheckResult, type PhaseLabeller, type PowerFactorSense } from '@trivar/core';
 import { fixed, renderTable, section } from './textTable.js';
 
 const SYSTEM_WORDS: Readonly<Record<string, string>> = {
@@ -16,7 +16,8 @@ const signed = (x: number, d: number): string => {
 const senseWord = (s: PowerFactorSense): string => (s === 'unity' ? '' : s === 'lagging' ? ' lag' : ' lead');
 const orDash = (x: number | null, d: number): string => (x === null ? '—' : fixed(x, d));
 
-export function renderHandCheckReport(r: HandCheckResult): string {
+/** @param label the board file's phase labels (`labellerOf(conventionsOf(board).phaseNames)`) */
+export function renderHandCheckReport(r: HandCheckResult, label: PhaseLabeller = labellerOf('A/B/C')): string {
   const out: string[] = [];
   out.push(`Hand figures checked on ${r.board.name}`);
   out.push(`${SYSTEM_WORDS[r.board.system] ?? r.board.system} · ${fixed(r.board.nominalLineToNeutralV, 1)} V line-to-neutral · ${r.board.frequencyHz} Hz`);
@@ -25,7 +26,7 @@ export function renderHandCheckReport(r: HandCheckResult): string {
   out.push(
     renderTable(
       [{ header: 'branch', align: 'left' }, { header: 'kvar by hand' }, { header: 'µF' }, { header: 'V nominal' }, { header: 'V solved' }, { header: 'kvar solved' }],
-      r.capacitors.map((c) => [c.branch, fixed(c.handKvar, 2), fixed(c.capacitanceUF, 1), fixed(c.nominalV, 1), fixed(c.appliedV, 1), fixed(c.kvarAtAppliedV, 2)]),
+      r.capacitors.map((c) => [label(c.branch), fixed(c.handKvar, 2), fixed(c.capacitanceUF, 1), fixed(c.nominalV, 1), fixed(c.appliedV, 1), fixed(c.kvarAtAppliedV, 2)]),
     ),
   );
 
@@ -46,7 +47,7 @@ export function renderHandCheckReport(r: HandCheckResult): string {
         { header: 'PF2', align: 'left' as const },
       ],
       r.textbook.map((p) => [
-        p.phase,
+        label(p.phase),
         fixed(p.kW, 2),
         fixed(p.kvarBefore, 2),
         orDash(p.tanBefore, 3),
@@ -64,7 +65,7 @@ export function renderHandCheckReport(r: HandCheckResult): string {
   out.push(
     renderTable(
       [{ header: 'phase', align: 'left' }, { header: 'active A = P/V' }, { header: 'reactive A = Q/V', align: 'left' }, { header: 'line A = √(a² + r²)', align: 'left' }],
-      r.textbook.map((p) => [p.phase, fixed(p.activeCurrentA, 1), `${fixed(p.reactiveCurrentBeforeA, 1)} → ${fixed(p.reactiveCurrentAfterA, 1)}`, `${fixed(p.currentBeforeA, 1)} → ${fixed(p.currentAfterA, 1)}`]),
+      r.textbook.map((p) => [label(p.phase), fixed(p.activeCurrentA, 1), `${fixed(p.reactiveCurrentBeforeA, 1)} → ${fixed(p.reactiveCurrentAfterA, 1)}`, `${fixed(p.currentBeforeA, 1)} → ${fixed(p.currentAfterA, 1)}`]),
     ),
   );
   out.push('  current triangle of each phase, before → after the capacitors');
@@ -72,7 +73,7 @@ export function renderHandCheckReport(r: HandCheckResult): string {
   out.push(section('Hand figures against the solved board, with your capacitors in'));
   const rows: string[][] = [];
   for (const l of r.lines) {
-    rows.push([l.phase, 'current A', orDash(l.currentA.yours, 1), fixed(l.currentA.textbook, 1), fixed(l.currentA.solved, 1), signed(l.currentA.difference, 1)]);
+    rows.push([label(l.phase), 'current A', orDash(l.currentA.yours, 1), fixed(l.currentA.textbook, 1), fixed(l.currentA.solved, 1), signed(l.currentA.difference, 1)]);
     rows.push(['', 'PF', orDash(l.pf.yours, 3), `${fixed(l.pf.textbook, 3)}${senseWord(l.senseTextbook)}`, `${fixed(l.pf.solved, 3)}${senseWord(l.senseSolved)}`, signed(l.pf.difference, 3)]);
   }
   if (r.neutralA) rows.push(['N', 'current A', orDash(r.neutralA.yours, 1), fixed(r.neutralA.textbook, 1), fixed(r.neutralA.solved, 1), signed(r.neutralA.difference, 1)]);
@@ -84,7 +85,7 @@ export function renderHandCheckReport(r: HandCheckResult): string {
     ),
   );
 
-  const phases = r.lines.map((l) => l.phase);
+  const phases = r.lines.map((l) => label(l.phase));
   const hasN = r.neutralA !== null;
   out.push(section('Where each difference comes from'));
   out.push(

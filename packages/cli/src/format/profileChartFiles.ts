@@ -1,5 +1,5 @@
 /** The SVG charts of a profile study, written through `write(name, text)`. */
-import { renderDurationChart, renderTimeChart, type IntervalFigures, type ProfileStudy } from '@trivar/core';
+import { labellerOf, renderDurationChart, renderTimeChart, type IntervalFigures, type PhaseLabeller, type ProfileStudy } from '@trivar/core';
 
 /**
  * Power factor per local day from the day's energy, kWh / √(kWh² + kvarh²) with net kvarh,
@@ -30,10 +30,11 @@ function dailyPf(f: IntervalFigures, label: (i: number) => string): Float64Array
 
 export const CHART_FILES = ['currents.svg', 'power-factor.svg', 'load-duration.svg'] as const;
 
-export function writeProfileCharts(study: ProfileStudy, write: (name: string, text: string) => void): void {
+/** @param label the board file's phase labels: the series are named that way */
+export function writeProfileCharts(study: ProfileStudy, write: (name: string, text: string) => void, label: PhaseLabeller = labellerOf('A/B/C')): void {
   const f = study.before;
   const phases = f.lineA.length;
-  const names = ['A', 'B', 'C'].slice(0, phases);
+  const names = (['A', 'B', 'C'] as const).slice(0, phases).map(label);
   const currents = [...names.map((p, k) => ({ name: `line ${p}`, values: f.lineA[k]! })), ...(study.result.before.conductors.some((c) => c.conductor === 'N') ? [{ name: 'neutral', values: f.neutralA }] : [])];
   const board = study.result.board;
   write('currents.svg', renderTimeChart({ title: `${board}: line and neutral current`, unit: 'A', series: currents, labelOf: study.label }));

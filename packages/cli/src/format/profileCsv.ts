@@ -1,5 +1,8 @@
 /** CSV files of `trivar profile`: the summary (one figure a row) and the per-interval results. */
-import type { ProfileResult, ProfileStudy, ProfileSummary } from '@trivar/core';
+import { labellerOf, type PhaseLabeller, type ProfileResult, type ProfileStudy, type ProfileSummary } from '@trivar/core';
+
+/** Labels of a board file named A/B/C: what a caller without the board's naming gets. */
+const LETTERED = labellerOf('A/B/C');
 
 const cell = (x: string | number | null) => {
   if (x === null) return '';
@@ -8,13 +11,14 @@ const cell = (x: string | number | null) => {
 };
 
 /** Rows: figure, where, before, after (empty without a bank), unit. */
-export function summaryCsv(r: ProfileResult): string {
+/** @param label the board file's phase labels: the `where` column names lines and phases that way */
+export function summaryCsv(r: ProfileResult, label: PhaseLabeller = LETTERED): string {
   const rows: (string | number | null)[][] = [['figure', 'where', 'before', 'after', 'unit']];
   const a = r.bank?.after ?? null;
   const add = (figure: string, where: string, pick: (s: ProfileSummary) => string | number | null, unit: string) =>
     rows.push([figure, where, pick(r.before), a ? pick(a) : null, unit]);
   r.before.conductors.forEach((c, k) => {
-    const where = c.conductor === 'N' ? 'neutral' : `line ${c.conductor}`;
+    const where = c.conductor === 'N' ? 'neutral' : `line ${label(c.conductor)}`;
     add('peak current', where, (s) => s.conductors[k]!.maxA, 'A');
     add('peak current at', where, (s) => s.conductors[k]!.maxAt, 'local time');
     add('P99 current', where, (s) => s.conductors[k]!.p99A, 'A');
@@ -22,16 +26,16 @@ export function summaryCsv(r: ProfileResult): string {
     add('hours over limit', where, (s) => s.conductors[k]!.hoursAboveLimit, 'h');
   });
   r.before.voltages.forEach((v, k) => {
-    add('lowest voltage', `phase ${v.phase}`, (s) => s.voltages[k]!.minPercent, '% of nominal');
-    add('highest voltage', `phase ${v.phase}`, (s) => s.voltages[k]!.maxPercent, '% of nominal');
+    add('lowest voltage', `phase ${label(v.phase)}`, (s) => s.voltages[k]!.minPercent, '% of nominal');
+    add('highest voltage', `phase ${label(v.phase)}`, (s) => s.voltages[k]!.maxPercent, '% of nominal');
   });
   add('hours below voltage limit', 'board', (s) => s.hoursVoltageLow, 'h');
   add('hours above voltage limit', 'board', (s) => s.hoursVoltageHigh, 'h');
   if (r.before.unbalance) add('hours above unbalance limit', 'board', (s) => s.unbalance?.hoursAbove ?? null, 'h');
   add('leading import', 'board', (s) => s.leadingHours, 'h');
   r.before.energy.phases.forEach((p, k) => {
-    add('energy', `line ${p.phase}`, (s) => s.energy.phases[k]!.kWh, 'kWh');
-    add('reactive energy', `line ${p.phase}`, (s) => s.energy.phases[k]!.kvarh, 'kvarh');
+    add('energy', `line ${label(p.phase)}`, (s) => s.energy.phases[k]!.kWh, 'kWh');
+    add('reactive energy', `line ${label(p.phase)}`, (s) => s.energy.phases[k]!.kvarh, 'kvarh');
   });
   add('billing power factor', 'period', (s) => s.energy.billingPf, '');
   r.before.months.forEach((m, k) => {
@@ -42,15 +46,16 @@ export function summaryCsv(r: ProfileResult): string {
     add('reactive charge', m.month, (s) => s.months[k]!.reactiveCharge, 'currency');
     add('demand charge', m.month, (s) => s.months[k]!.demandCharge, 'currency');
   });
-  r.bank?.steps.forEach((s) => rows.push([`bank step ${s.step} closings per year`, s.channel, null, s.closingsPerYear, 'operations']));
+  r.bank?.steps.forEach((s) => rows.push([`bank step ${s.step} closings per year`, label(s.channel), null, s.closingsPerYear, 'operations']));
   return rows.map((row) => row.map(cell).join(',')).join('\n') + '\n';
 }
 
 /** One row per interval: local time, currents, phase voltages, board P, Q, PF (and the same with the bank). */
-export function intervalCsv(study: ProfileStudy): string {
+/** @param label the board file's phase labels: the column headers name lines and phases that way */
+export function intervalCsv(study: ProfileStudy, label: PhaseLabeller = LETTERED): string {
   const f = study.before;
   const phases = f.lineA.length;
-  const names = ['A', 'B', 'C'].slice(0, phases);
+  const names = (['A', 'B', 'C'] as const).slice(0, phases).map(label);
   const set = (tag: string) => [...names.map((p) => `line ${p}${tag} A`), `neutral${tag} A`, ...names.map((p) => `phase ${p}${tag} %V`), `P${tag} kW`, `Q${tag} kvar`, `PF${tag}`];
   const head = ['time', ...set(''), ...(study.after ? ['bank kvar', ...set(' with bank')] : [])];
   const out: string[] = [head.join(',')];

@@ -1,10 +1,12 @@
 /** ProfileResult → the text report of `trivar profile`. */
-import type { ProfileResult, ProfileSummary, ScenarioResult } from '@trivar/core';
+import { labellerOf, type PhaseLabeller, type ProfileResult, type ProfileSummary, type ScenarioResult } from '@trivar/core';
 import { fixed, renderTable, section } from './textTable.js';
 
 const hours = (h: number) => (h === 0 ? '0' : h < 10 ? fixed(h, 2) : fixed(h, 1));
 const thousands = (x: number) => Math.round(x).toLocaleString('en-US');
 const money = (x: number | null) => (x === null ? '-' : fixed(x, 2));
+/** Labels of a board file named A/B/C: what a caller without the board's naming gets. */
+const LETTERED = labellerOf('A/B/C');
 
 function dataLines(r: ProfileResult): string[] {
   const s = r.sequence;
@@ -26,11 +28,11 @@ function dataLines(r: ProfileResult): string[] {
   return lines.map((l) => `  ${l}`);
 }
 
-function currentTable(s: ProfileSummary): string {
+function currentTable(s: ProfileSummary, label: PhaseLabeller): string {
   return renderTable(
     [{ header: 'conductor', align: 'left' }, { header: 'peak A' }, { header: 'at', align: 'left' }, { header: 'P99 A' }, { header: 'P95 A' }, { header: 'limit A' }, { header: 'hours over' }],
     s.conductors.map((c) => [
-      c.conductor === 'N' ? 'neutral' : `line ${c.conductor}`,
+      c.conductor === 'N' ? 'neutral' : `line ${label(c.conductor)}`,
       fixed(c.maxA, 1),
       c.maxAt,
       fixed(c.p99A, 1),
@@ -41,10 +43,10 @@ function currentTable(s: ProfileSummary): string {
   );
 }
 
-function voltageTable(s: ProfileSummary): string {
+function voltageTable(s: ProfileSummary, label: PhaseLabeller): string {
   return renderTable(
     [{ header: 'phase', align: 'left' }, { header: 'lowest %' }, { header: 'at', align: 'left' }, { header: 'highest %' }, { header: 'at', align: 'left' }],
-    s.voltages.map((v) => [v.phase, fixed(v.minPercent, 1), v.minAt, fixed(v.maxPercent, 1), v.maxAt]),
+    s.voltages.map((v) => [label(v.phase), fixed(v.minPercent, 1), v.minAt, fixed(v.maxPercent, 1), v.maxAt]),
   );
 }
 
@@ -57,8 +59,8 @@ function thresholdLines(s: ProfileSummary, r: ProfileResult): string[] {
   return out.map((x) => `  ${x}`);
 }
 
-function energyTable(s: ProfileSummary): string {
-  const rows = s.energy.phases.map((p) => [`line ${p.phase}`, thousands(p.kWh), thousands(p.kvarh)]);
+function energyTable(s: ProfileSummary, label: PhaseLabeller): string {
+  const rows = s.energy.phases.map((p) => [`line ${label(p.phase)}`, thousands(p.kWh), thousands(p.kvarh)]);
   rows.push(['board, imported', thousands(s.energy.kWhImport), thousands(s.energy.kvarhLagging) + ' lag']);
   if (s.energy.kWhExport > 0 || s.energy.kvarhLeading > 0) rows.push(['board, exported / leading', thousands(s.energy.kWhExport), thousands(s.energy.kvarhLeading) + ' lead']);
   return `${renderTable([{ header: '', align: 'left' }, { header: 'kWh' }, { header: 'kvarh' }], rows)}\n  billing power factor over the period: ${fixed(s.energy.billingPf, 3)}`;
@@ -93,13 +95,13 @@ function monthTable(s: ProfileSummary, after: ProfileSummary | null, currency: s
   return renderTable(head, rows);
 }
 
-function bankLines(r: ProfileResult): string {
+function bankLines(r: ProfileResult, label: PhaseLabeller): string {
   const b = r.bank!;
   const set = b.settings;
   const sizing =
     b.source === 'profile'
       ? `sized from the profile to hold the target in ${fixed((set.coverShare ?? 0) * 100, 0)} % of intervals: ${Object.entries(b.needKvar ?? {})
-          .map(([c, v]) => `${fixed(v, 1)} kvar ${c === 'ABC' ? 'three-phase' : `on phase ${c}`}`)
+          .map(([c, v]) => `${fixed(v, 1)} kvar ${c === 'ABC' ? 'three-phase' : `on phase ${label(c)}`}`)
           .join(', ')} needed`
       : b.source === 'correction-study'
         ? 'the bank the correction study designs for this board (trivar correct, the board file\'s correction section)'
@@ -123,7 +125,7 @@ function bankLines(r: ProfileResult): string {
     '',
     renderTable(
       [{ header: 'step' }, { header: 'where', align: 'left' }, { header: 'kvar' }, { header: 'closings' }, { header: 'per year' }],
-      b.steps.map((s) => [String(s.step), s.channel === 'ABC' ? 'three-phase' : `phase ${s.channel}`, fixed(s.kvar, 1), thousands(s.closings), thousands(s.closingsPerYear)]),
+      b.steps.map((s) => [String(s.step), s.channel === 'ABC' ? 'three-phase' : `phase ${label(s.channel)}`, fixed(s.kvar, 1), thousands(s.closings), thousands(s.closingsPerYear)]),
     ),
     `  typical limit ${thousands(b.operationsPerYearLimit)} operations a year per step (IEC 60831-1 practice); a capacitor contactor lasts about ${thousands(b.contactorLifeOperations)} operations${
       b.yearsToContactorLife === null ? '' : ` — the busiest step reaches that in ${fixed(b.yearsToContactorLife, 1)} years`
@@ -144,32 +146,34 @@ function worstTable(s: ProfileSummary): string {
   return renderTable([{ header: 'interval', align: 'left' }, { header: 'highest line A' }, { header: 'neutral A' }, { header: 'unbalance %' }], rows);
 }
 
-export function renderProfileReport(r: ProfileResult, currency: string): string {
+/** @param label the board file's phase labels (`labellerOf(conventionsOf(board).phaseNames)`) */
+export function renderProfileReport(r: ProfileResult, currency: string, label: PhaseLabeller = LETTERED): string {
   const s = r.before;
   const parts = [
     `${r.board} — load over time`,
     ...dataLines(r),
     section('Currents'),
-    currentTable(s),
+    currentTable(s, label),
     section('Phase voltage at the board (% of nominal)'),
-    voltageTable(s),
+    voltageTable(s, label),
     ...thresholdLines(s, r),
     section('Energy'),
-    energyTable(s),
+    energyTable(s, label),
     section('Calendar months'),
     monthTable(s, r.bank?.after ?? null, currency),
     section(s.worstByNeutral.length ? 'Intervals with the highest neutral current' : 'Intervals with the highest line current'),
     worstTable(s),
   ];
-  if (r.bank) parts.push(section('Automatic bank over the profile'), bankLines(r));
+  if (r.bank) parts.push(section('Automatic bank over the profile'), bankLines(r, label));
   parts.push(section('Cautions'), ...r.cautions.map((c) => `  - ${c}`));
   return `${parts.join('\n')}\n`;
 }
 
 /** The report of a board file's scenarios (no interval data). */
-export function renderScenarioReport(r: ScenarioResult): string {
+/** @param label the board file's phase labels (`labellerOf(conventionsOf(board).phaseNames)`) */
+export function renderScenarioReport(r: ScenarioResult, label: PhaseLabeller = LETTERED): string {
   const phases = r.scenarios[0]?.lineA.length ?? 0;
-  const names = ['A', 'B', 'C'].slice(0, phases);
+  const names = (['A', 'B', 'C'] as const).slice(0, phases).map(label);
   const hasNeutral = r.scenarios.some((s) => s.neutralA !== null);
   const table = renderTable(
     [

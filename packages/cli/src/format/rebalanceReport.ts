@@ -72,7 +72,7 @@ function boardsTable(r: RebalanceReport, condition: string): string {
   const columns = [
     { header: 'board incomer', align: 'left' as const },
     { header: '', align: 'left' as const },
-    ...first.lineA.map((_, k) => ({ header: `line ${'ABC'[k]}` })),
+    ...first.lineA.map((_, k) => ({ header: `line ${labelIn(r.board.phaseNames ?? 'A/B/C', 'ABC'[k]!)}` })),
     ...(first.neutralA !== null ? [{ header: 'neutral' }] : []),
     ...(first.currentUnbalancePercent !== null ? [{ header: '|I2|/|I1|' }] : []),
     ...(first.voltageUnbalancePercent !== null ? [{ header: '|V2|/|V1|' }] : []),
@@ -124,7 +124,7 @@ function moveTable(r: RebalanceReport): string {
 }
 
 export function renderRebalanceReport(r: RebalanceReport): string {
-  const lines = r.conditions[0]?.solved.before.lineA.map((_, k) => 'ABC'[k]!) ?? [];
+  const lines = r.conditions[0]?.solved.before.lineA.map((_, k) => labelIn(r.board.phaseNames ?? 'A/B/C', 'ABC'[k]!)) ?? [];
   const installation = isInstallation(r);
   const parts: string[] = [
     r.board.name,

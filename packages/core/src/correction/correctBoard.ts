@@ -25,6 +25,7 @@ import { assertViableBoard } from '../analysis/viableOperatingPoint.js';
 import { CORRECTION_DEFAULTS } from './correctionDefaults.js';
 import { refitReactors, selectionWithResizedReactors } from './_internal/refitReactors.js';
 import { conventionsOf } from '../board/conventions/boardConventions.js';
+import { labellerOf, type PhaseLabeller } from '../board/conventions/phaseNames.js';
 import { regionWords } from '../board/conventions/regionWords.js';
 
 /** @param use `limitsOnly` for the light-load sizing, read only for its limits (see ResolvedBankOptions) */
@@ -73,10 +74,10 @@ const buildable = (sizing: BankSizing | CompensatorSizing): SizedEquipment =>
   sizing.arrangement === 'balancing-compensator' ? (sizing.recommended === 'ideal' ? sizing.ideal : sizing.capacitorOnly) : sizing;
 
 /** The reactors of the equipment as built, for the one-line summary. */
-function reactorWords(equipment: readonly EquipmentGroup[]): string {
+function reactorWords(equipment: readonly EquipmentGroup[], label: PhaseLabeller): string {
   const reactors = equipment.flatMap((g) => g.branches).filter((b) => b.susceptanceS < 0);
   return reactors.length
-    ? `, with ${reactors.map((b) => `a ${Math.abs(kvarFromSusceptance(b.susceptanceS, b.vNominal)).toFixed(2)} kvar reactor on ${b.branch}`).join(' and ')}`
+    ? `, with ${reactors.map((b) => `a ${Math.abs(kvarFromSusceptance(b.susceptanceS, b.vNominal)).toFixed(2)} kvar reactor on ${label(b.branch)}`).join(' and ')}`
     : '';
 }
 
@@ -104,6 +105,9 @@ export function correctBoard(board: Board, spec: unknown): CorrectionReport {
     );
   assertViableBoard(board);
   const parsed = { ...checked, arrangement: checked.arrangement };
+  // Sentences name phases and branches the way the board file does (L1-L2 or A-B); data keys stay A/B/C.
+  const phaseNames = conventionsOf(board).phaseNames;
+  const label = labellerOf(phaseNames);
   const target = resolveTarget(parsed.target, board, parsed.arrangement);
   const sizing = sizeArrangement(board, parsed);
   const sized = buildable(sizing);
@@ -124,6 +128,7 @@ export function correctBoard(board: Board, spec: unknown): CorrectionReport {
           voltageMarginPercent: parsed.voltageMarginPercent,
           deliveryFloorPercent: parsed.deliveryFloorPercent,
           lightLoad: lightSized,
+          phaseNames,
         }),
       )
     : null;
@@ -152,6 +157,7 @@ export function correctBoard(board: Board, spec: unknown): CorrectionReport {
   const recommended = sizing.status === 'already-meets-target' ? [] : useRefit ? refit.equipment : (selection?.equipment ?? sized.equipment);
   const verification = verifyCorrection(board, verifyOptions(recommended));
   const built = useRefit && selection ? selectionWithResizedReactors(selection, refit, verification.branches) : selection;
+  const resizedWords = (r: NonNullable<typeof refit>['reactors']) => r.map((x) => ({ ...x, branch: label(x.branch) }));
   const resizing = refit ? { reactors: refit.reactors, objectiveSized: refit.objectiveSized, objectiveResized: refit.objectiveResized, converged: refit.converged, used: useRefit, solves: refit.solves } : null;
   const idealVerification = sizing.arrangement === 'balancing-compensator' ? verifyCorrection(board, verifyOptions(sizing.ideal.equipment)) : null;
 
@@ -171,7 +177,7 @@ export function correctBoard(board: Board, spec: unknown): CorrectionReport {
     const reactorKvar = sized.branches.reduce((sum, b) => sum + (b.element === 'reactor' ? -b.kvarAtAppliedV : 0), 0);
     if (selection && reactorKvar > 0) {
       const idealCapKvar = sized.branches.reduce((sum, b) => sum + (b.element === 'capacitor' ? b.kvarAtAppliedV : 0), 0);
-      if (selection.deliveredKvar < idealCapKvar) reasons.push(infeasibleReason.capacitorsRoundedDownBesideReactors(selection.deliveredKvar, idealCapKvar, reactorKvar, resizing));
+      if (selection.deliveredKvar < idealCapKvar) reasons.push(infeasibleReason.capacitorsRoundedDownBesideReactors(selection.deliveredKvar, idealCapKvar, reactorKvar, resizing && { used: resizing.used, reactors: resizedWords(resizing.reactors) }));
     }
   } else if (!verification.tolerance.low.check.met || verification.tolerance.high.check.leadingLines.length > 0)
     status = 'meets-target-at-nominal-capacitance';
@@ -185,7 +191,7 @@ export function correctBoard(board: Board, spec: unknown): CorrectionReport {
     ...starPointWarnings(sizing, board),
     ...(sizing.arrangement === 'balancing-compensator' ? sizing.warnings : []),
     ...(selection?.warnings ?? []).filter((w) => !settledByVerdict.has(w.code)),
-    ...(resizing?.used ? [{ code: 'reactors-resized', message: warningText.reactorsResized(resizing.reactors), path: null, value: null, threshold: null }] : []),
+    ...(resizing?.used ? [{ code: 'reactors-resized', message: warningText.reactorsResized(resizedWords(resizing.reactors)), path: null, value: null, threshold: null }] : []),
     ...verification.warnings,
   ];
   const what = ARRANGEMENT_NAMES[parsed.arrangement];
@@ -194,7 +200,7 @@ export function correctBoard(board: Board, spec: unknown): CorrectionReport {
   return {
     arrangement: parsed.arrangement,
     status,
-    summary: (status === 'already-meets-target' ? reportSummary[status](what) : reportSummary[status](what, delivered, nameplate)) + reactorWords(recommended),
+    summary: (status === 'already-meets-target' ? reportSummary[status](what) : reportSummary[status](what, delivered, nameplate)) + reactorWords(recommended, label),
     reasons,
     target,
     sizing,

@@ -18,6 +18,7 @@ import type { BoardResult, PowerFactorSense } from '../analysis/boardResult.js';
 import type { Arrangement, TargetDefinition, TargetSpec } from './correctionSpec.js';
 import { CORRECTION_DEFAULTS } from './correctionDefaults.js';
 import { meteredStatement, TARGET_STATEMENTS, targetShortfall } from './correctionWording.js';
+import { labellerOf } from '../board/conventions/phaseNames.js';
 
 export type BoardTargetDefinition = Exclude<TargetDefinition, 'per-line'>;
 
@@ -141,6 +142,8 @@ const UNLOADED_FRACTION = 1e-6;
  */
 export function checkTarget(result: BoardResult, target: ResolvedTarget, before?: BoardResult): TargetCheck {
   const largest = Math.max(...result.phases.map((p) => p.kVA), 0);
+  // Shortfalls name lines the way the board file does (L1 or A).
+  const label = labellerOf(result.conventions.phaseNames);
   const shortfalls: string[] = [];
   const leadingLines: PhaseId[] = [];
   const leadingBefore: PhaseId[] = [];
@@ -158,10 +161,10 @@ export function checkTarget(result: BoardResult, target: ResolvedTarget, before?
     const meetsMinimum = !loaded || high === Infinity || p.kvar <= high * Math.abs(p.kW) + slack;
     const withinUpperBound = !loaded || p.kvar >= low * Math.abs(p.kW) - slack;
     const minPf = target.lines[k]?.minPf ?? null;
-    if (!meetsMinimum) shortfalls.push(targetShortfall.lineBelow(p.phase, p.pf, p.sense, minPf ?? target.pf));
+    if (!meetsMinimum) shortfalls.push(targetShortfall.lineBelow(label(p.phase), p.pf, p.sense, minPf ?? target.pf));
     if (!withinUpperBound) {
       if (p.kvar < 0) leadingLines.push(p.phase);
-      shortfalls.push(leadingBefore.includes(p.phase) ? targetShortfall.lineLeadsMore(p.phase, p.pf, b!.pf) : targetShortfall.lineBeyond(p.phase, p.pf, p.sense, target));
+      shortfalls.push(leadingBefore.includes(p.phase) ? targetShortfall.lineLeadsMore(label(p.phase), p.pf, b!.pf) : targetShortfall.lineBeyond(label(p.phase), p.pf, p.sense, target));
     }
     return { phase: p.phase, pf: p.pf, sense: p.sense, loaded, minPf, meetsMinimum, withinUpperBound };
   });

@@ -2,7 +2,7 @@
  * Every sentence the correction study writes: definitions, shortfalls,
  * reasons, warnings and cautions. Plain text; the CLI decides how to show it.
  */
-import type { PhaseId } from '../board/boardModel.js';
+import type { PhaseLabel } from '../board/conventions/phaseNames.js';
 import type { PowerFactorSense } from '../analysis/boardResult.js';
 import type { TargetDefinition } from './correctionSpec.js';
 
@@ -41,17 +41,17 @@ export const TARGET_STATEMENTS: Record<TargetDefinition, string> = {
 export const meteredStatement = (statement: string): string => statement.replace(' at the board', ' at the metering point').replace(' of the board', ' at the metering point');
 
 export const targetShortfall = {
-  lineBelow: (phase: PhaseId, pf: number | null, sense: PowerFactorSense, min: number) => {
+  lineBelow: (phase: PhaseLabel, pf: number | null, sense: PowerFactorSense, min: number) => {
     if (pf === null) return `line ${phase} carries no current (no PF)`;
     const [v, m] = distinctDigits(pf, min);
     return `line ${phase} is at ${sense === 'unity' ? v : `${v} ${sense}`}, below the target ${m} lagging`;
   },
-  lineLeadsMore: (phase: PhaseId, pf: number | null, pfBefore: number | null) => {
+  lineLeadsMore: (phase: PhaseLabel, pf: number | null, pfBefore: number | null) => {
     if (pf === null || pfBefore === null) return `line ${phase} led before and the equipment makes it lead more`;
     const [v, b] = distinctDigits(pf, pfBefore);
     return `line ${phase} led at ${b} before and the equipment makes it lead more (${v} leading)`;
   },
-  lineBeyond: (phase: PhaseId, pf: number | null, sense: PowerFactorSense, t: TargetWords) =>
+  lineBeyond: (phase: PhaseLabel, pf: number | null, sense: PowerFactorSense, t: TargetWords) =>
     t.maxLaggingPf !== null && t.definition === 'per-line'
       ? `line ${phase} is at ${pfText(pf, sense)}, past the upper bound ${f3(t.maxLaggingPf)} lagging`
       : t.leading === 'never'
@@ -69,7 +69,7 @@ export const targetShortfall = {
 };
 
 export const infeasibleReason = {
-  alreadyLeading: (phases: readonly PhaseId[]) =>
+  alreadyLeading: (phases: readonly PhaseLabel[]) =>
     `line${phases.length > 1 ? 's' : ''} ${phases.join(', ')} already lead${phases.length > 1 ? '' : 's'} before correction: capacitors cannot help there, a reactor would be needed`,
   exporting: 'the board exports active power, so a power-factor target has no meaning for it',
   noLoad: 'the board draws no active power (every load is zero or off), so there is nothing to correct',
@@ -77,7 +77,7 @@ export const infeasibleReason = {
     `no capacitor-only bank of this arrangement meets the target without breaking a bound; the best reachable leaves: ${shortfalls.join('; ')}`,
   notConverged: (iterations: number, change: number) =>
     `the sizing did not settle in ${iterations} re-solves (last change ${change.toExponential(2)} of the board's apparent power)`,
-  needsReactors: (branches: readonly string[], all: readonly { branch: string; element: string; kvarAtNominalV: number }[]) =>
+  needsReactors: (branches: readonly PhaseLabel[], all: readonly { branch: PhaseLabel; element: string; kvarAtNominalV: number }[]) =>
     `the ideal (Steinmetz/Gyugyi) compensator balances it with ${all
       .filter((b) => b.element !== 'none')
       .map((b) => `${b.element === 'reactor' ? 'a reactor' : 'a capacitor'} of ${Math.abs(b.kvarAtNominalV).toFixed(2)} kvar on ${b.branch}`)
@@ -99,7 +99,7 @@ export const infeasibleReason = {
 /** What the wording needs of a reactor re-sizing (see ReactorResizing). */
 interface ResizingWords {
   readonly used: boolean;
-  readonly reactors: readonly { readonly branch: string; readonly sizedKvar: number; readonly resizedKvar: number }[];
+  readonly reactors: readonly { readonly branch: PhaseLabel; readonly sizedKvar: number; readonly resizedKvar: number }[];
 }
 const reactorChanges = (reactors: ResizingWords['reactors']) => reactors.map((r) => `${r.branch} ${r.sizedKvar.toFixed(2)} → ${r.resizedKvar.toFixed(2)} kvar`).join(', ');
 
@@ -109,27 +109,27 @@ export const warningText = {
   alreadyMet: 'the board already meets the target: nothing to add',
   unitFrequency: (name: string, ratedHz: number, hz: number) =>
     `unit "${name}" is rated for ${ratedHz} Hz and used at ${hz} Hz: its output and current scale by ${f3(hz / ratedHz)}`,
-  unitsBelowTarget: (branch: string) =>
+  unitsBelowTarget: (branch: PhaseLabel) =>
     `branch ${branch}: the units cannot reach the requirement without passing the no-leading limit; the design stays below the limit and short of the target`,
-  unitsPastLimit: (branch: string) => `branch ${branch}: no build of the available units stays within the no-leading limit; the smallest that reaches the target is used`,
-  windowMissed: (branch: string) =>
+  unitsPastLimit: (branch: PhaseLabel) => `branch ${branch}: no build of the available units stays within the no-leading limit; the smallest that reaches the target is used`,
+  windowMissed: (branch: PhaseLabel) =>
     `branch ${branch}: no combination of units guarantees the target at the lowest capacitance tolerance without exceeding the no-leading limit at the highest; the choice meets the target at nominal capacitance`,
   toleranceLow: (shortfalls: readonly string[]) => `with capacitance at the low end of its tolerance the target is missed: ${shortfalls.join('; ')}`,
-  toleranceHigh: (phases: readonly PhaseId[]) => `with capacitance at the high end of its tolerance line${phases.length > 1 ? 's' : ''} ${phases.join(', ')} lead`,
-  lightLoadLeading: (phases: readonly PhaseId[]) =>
+  toleranceHigh: (phases: readonly PhaseLabel[]) => `with capacitance at the high end of its tolerance line${phases.length > 1 ? 's' : ''} ${phases.join(', ')} lead`,
+  lightLoadLeading: (phases: readonly PhaseLabel[]) =>
     `at light load the fixed part makes line${phases.length > 1 ? 's' : ''} ${phases.join(', ')} lead (checked at the high end of the capacitance tolerance)`,
   voltageRise: (what: string, percent: number, limit: number) => `${what} raises the board voltage by about ${percent.toFixed(2)} %, above the ${f1(limit)} % flag level`,
   lowResonance: (order: number) =>
     `the bank and the supply inductance resonate near harmonic order ${order.toFixed(1)}: with harmonic-producing loads on the board this needs a harmonic study and probably a detuned bank`,
-  partialBalance: (negative: number, zero: number, reactors: readonly string[]) =>
+  partialBalance: (negative: number, zero: number, reactors: readonly PhaseLabel[]) =>
     `the capacitor-only compensator meets the power-factor target but balances only partly (|I2|/|I1| = ${negative.toFixed(1)} %, |I0|/|I1| = ${zero.toFixed(1)} %)${reactors.length ? `; full balance needs reactors on ${reactors.join(', ')}` : ''}`,
-  outputsShort: (branches: readonly string[], outputs: number) =>
+  outputsShort: (branches: readonly PhaseLabel[], outputs: number) =>
     `${branches.join(', ')}: no build fits in ${outputs} controller output${outputs === 1 ? '' : 's'}; steps were merged beyond what the controller allows`,
-  stepBelowMinimum: (branches: readonly string[], minKvar: number) =>
+  stepBelowMinimum: (branches: readonly PhaseLabel[], minKvar: number) =>
     `${branches.join(', ')}: no build keeps every switched step at or above ${f1(minKvar)} kvar; the closest build is used`,
   starPointShift: (shiftV: number, percent: number, lowV: number, highV: number) =>
     `the floating star point of the bank sits ${f1(shiftV)} V (${percent.toFixed(0)} % of line-to-neutral) from the centroid of the line voltages, so its elements see ${f1(lowV)}–${f1(highV)} V: a star bank with unequal branches on a board without a neutral works against itself; consider a delta bank`,
-  reactorsNeeded: (branches: readonly string[], capacitorShortfalls: readonly string[]) =>
+  reactorsNeeded: (branches: readonly PhaseLabel[], capacitorShortfalls: readonly string[]) =>
     `capacitors alone would leave ${capacitorShortfalls.join('; ') || 'the target unmet'}: the recommended compensator includes reactors on ${branches.join(', ')} (Steinmetz/Gyugyi); set compensator.reactors: none for capacitors only`,
   reactorsNotSelected: 'reactors are given as continuous values only (kvar, mH); choosing reactor hardware is not part of this study',
   unbalanceWorse: (before: number, after: number, points: number) =>
@@ -170,7 +170,7 @@ export const selectionWording = {
   typicalNote:
     'typical ratings, not any vendor\'s range: check the real ratings, tolerance and discharge time of the units you buy',
   userNote: 'units from the catalogue given',
-  noUnit: (branches: readonly string[], neededV: number, appliedV: number, catalogue: string, floorPercent: number, ratings: readonly number[]) =>
+  noUnit: (branches: readonly PhaseLabel[], neededV: number, appliedV: number, catalogue: string, floorPercent: number, ratings: readonly number[]) =>
     `no unit in the ${catalogue} fits ${branches.join(', ')}: a unit there must be rated at least ${f1(neededV)} V and still deliver ${floorPercent.toFixed(0)} % of its nameplate at ${f1(appliedV)} V, i.e. be rated at most ${f1(appliedV / Math.sqrt(floorPercent / 100))} V; the catalogue has ${ratings.map((v) => `${v}`).join(', ')} V`,
   costStatement: (unitCostKvar: number) =>
     `least cost = nameplate kvar + ${unitCostKvar} kvar-equivalent per unit bought, among the builds that best fit the tolerance window, the controller outputs and the minimum step`,

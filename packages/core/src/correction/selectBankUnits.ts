@@ -28,6 +28,7 @@ import type { EquipmentBranch, EquipmentGroup } from './equipment.js';
 import type { BankSelection, BankStep, BranchSelection, CorrectionWarning, SelectedUnit, SizedEquipment, UnbuildableBranches } from './correctionResult.js';
 import { selectionWording, warningText } from './correctionWording.js';
 import { parseOptions } from '../_internal/zodIssues.js';
+import { labellerOf, PHASE_NAMINGS, type PhaseNaming } from '../board/conventions/phaseNames.js';
 import { searchSet, shortOfTarget, type Need, type SetBuild, type UnitChoice } from './_internal/bankSearch.js';
 import { controllerSettings, resolveCurrentTransformer, responseThresholdA } from './controllerSettings.js';
 
@@ -60,6 +61,8 @@ export interface SelectBankUnitsOptions {
    * @defaultValue none — no fixed part
    */
   readonly lightLoad?: SizedEquipment;
+  /** How the board file names its phases: warnings name branches that way (data keys stay A/B/C). @defaultValue 'A/B/C' */
+  readonly phaseNames?: PhaseNaming;
 }
 
 const selectOptionsSchema = z.strictObject({
@@ -82,6 +85,7 @@ const selectOptionsSchema = z.strictObject({
   voltageMarginPercent: z.number().min(0).max(100).optional(),
   deliveryFloorPercent: z.number().min(0).max(100).optional(),
   lightLoad: z.custom<SizedEquipment>((v) => typeof v === 'object' && v !== null && Array.isArray((v as SizedEquipment).branches)).optional(),
+  phaseNames: z.enum(PHASE_NAMINGS).optional(),
 });
 
 /** Practice a board follows when none is given: 60 Hz boards are taken as North-American, 50 Hz as IEC (a rule of thumb; set `practice` where it is wrong). */
@@ -116,6 +120,7 @@ export function selectBankUnits(sized: SizedEquipment, options?: SelectBankUnits
   const opts = parseOptions(selectOptionsSchema, options, 'selectBankUnits options');
   const practice = opts.practice ?? defaultPractice(sized.frequencyHz);
   const typical = opts.catalogue === undefined;
+  const label = labellerOf(opts.phaseNames ?? 'A/B/C');
   const catalogueTitle = typical ? TYPICAL_CATALOGUES[practice].title : 'the catalogue given (catalogue)';
   const all: Usable[] = typical ? TYPICAL_CATALOGUES[practice].units.map((unit) => ({ unit, index: null })) : opts.catalogue!.map((u, index) => ({ unit: catalogueUnitOf(u, index), index }));
   const tol = opts.capacitanceTolerance ?? {};
@@ -234,7 +239,7 @@ export function selectBankUnits(sized: SizedEquipment, options?: SelectBankUnits
       usedNeed[i] = build.needs[k]!;
     });
     builds.push({ set, build });
-    const names = set.indices.map((i) => branchInfo[i]!.b.branch);
+    const names = set.indices.map((i) => label(branchInfo[i]!.b.branch));
     build.tiers.forEach((tier, k) => {
       const name = names[k]!;
       if (tier === 1 || tier === 2) warn('tolerance-window', warningText.windowMissed(name));
@@ -307,7 +312,7 @@ export function selectBankUnits(sized: SizedEquipment, options?: SelectBankUnits
       branches: names,
       requiredRatedV,
       appliedV,
-      message: selectionWording.noUnit(names, requiredRatedV, appliedV, catalogueTitle, floor * 100, [...new Set(all.map((u) => u.unit.ratedV))].sort((a, b) => a - b)),
+      message: selectionWording.noUnit(names.map(label), requiredRatedV, appliedV, catalogueTitle, floor * 100, [...new Set(all.map((u) => u.unit.ratedV))].sort((a, b) => a - b)),
     };
   }
   if (sized.branches.some((b) => b.element === 'reactor')) warn('reactors-not-selected', warningText.reactorsNotSelected);

@@ -18,6 +18,7 @@ import type { CompensatorSizing, CompensatorSolution, CorrectionWarning } from '
 import { compensatorWording, infeasibleReason, warningText } from './correctionWording.js';
 import { checkRules, definedOnly, maxIterationsSchema, solveOptionsSchema } from './_internal/optionSchemas.js';
 import { parseOptions } from '../_internal/zodIssues.js';
+import { labellerOf } from '../board/conventions/phaseNames.js';
 import { createProbe, type ProbeState } from './_internal/boardProbe.js';
 import { branchSizings, lineComparisons } from './_internal/branchReadings.js';
 import { residualBasesFor, residualWeights } from './_internal/compensatorResidual.js';
@@ -167,23 +168,26 @@ export function sizeBalancingCompensator(board: Board, options?: CompensatorOpti
   let status: CompensatorSizing['status'] = 'infeasible';
   let recommended: CompensatorSizing['recommended'] = 'capacitor-only';
   const reasons: string[] = [];
+  // Sentences name branches the way the board file does (L1-L2 or A-B).
+  const label = labellerOf(start.result.conventions.phaseNames);
+  const reactorLabels = idealSolution.reactorBranches.map(label);
   if (balanceBefore.met && checkTarget(start.result, target).met) status = 'already-meets-target';
   else if (!(capSolution.check.met && balanceAfter.met) && idealWorks) {
     // Capacitors alone cannot do it; the Steinmetz/Gyugyi solution with its reactors can.
     status = 'meets-target';
     recommended = 'ideal';
-    warn('reactors-needed', warningText.reactorsNeeded(idealSolution.reactorBranches, balanceAfter.shortfalls.concat(capSolution.check.shortfalls)));
+    warn('reactors-needed', warningText.reactorsNeeded(reactorLabels, balanceAfter.shortfalls.concat(capSolution.check.shortfalls)));
   } else if (capSolution.check.met && balanceAfter.met) {
     status = 'meets-target';
     if (!capSolution.exact && idealSolution.reactorBranches.length)
       warn(
         'partial-balance',
-        warningText.partialBalance(capSolution.residual.negativeSequenceCurrentPercent, capSolution.residual.zeroSequenceCurrentPercent, idealSolution.reactorBranches),
+        warningText.partialBalance(capSolution.residual.negativeSequenceCurrentPercent, capSolution.residual.zeroSequenceCurrentPercent, reactorLabels),
       );
   } else {
     if (!balanceAfter.met) reasons.push(infeasibleReason.capacitorsCannotBalance(balanceAfter.shortfalls));
     if (capSolution.check.shortfalls.length) reasons.push(infeasibleReason.capacitorsCannotReach(capSolution.check.shortfalls));
-    if (idealSolution.reactorBranches.length) reasons.push(infeasibleReason.needsReactors(idealSolution.reactorBranches, idealSolution.branches));
+    if (idealSolution.reactorBranches.length) reasons.push(infeasibleReason.needsReactors(reactorLabels, idealSolution.branches.map((b) => ({ ...b, branch: label(b.branch) }))));
   }
   return {
     arrangement: 'balancing-compensator',

@@ -19,6 +19,7 @@ import { scaleBoardLoads } from './scaleBoardLoads.js';
 import type { CorrectionVerification, CorrectionWarning, LightLoadCheck, MeteringReadings, VoltageRise } from './correctionResult.js';
 import { meteringPlace, solveMeter } from './meteringPoint.js';
 import { warningText } from './correctionWording.js';
+import { labellerOf } from '../board/conventions/phaseNames.js';
 import { beforeAfter, branchSizings, lineComparisons } from './_internal/branchReadings.js';
 import { checkRules, definedOnly, solveOptionsSchema } from './_internal/optionSchemas.js';
 import { parseOptions } from '../_internal/zodIssues.js';
@@ -117,6 +118,8 @@ export function verifyCorrection(board: Board, options: VerifyCorrectionOptions)
   const meter = meteringPlace(board, target.measuredAt);
   const judged = (b: Board, atBoard?: BoardResult) => (meter ? solveMeter(b, meter, solveOptions) : (atBoard ?? solve(b)));
   const before = Object.keys(solveOptions).length === 0 ? solvedAsIs(board) : solve(board);
+  // Warnings name lines the way the board file does (L1 or A).
+  const label = labellerOf(before.conventions.phaseNames);
   const corrected = addCorrectionEquipment(board, equipment);
   const after = solve(corrected);
   const meteredBefore = judged(board, before);
@@ -126,7 +129,7 @@ export function verifyCorrection(board: Board, options: VerifyCorrectionOptions)
   const low = checkTarget(judged(addCorrectionEquipment(board, equipment, { capacitanceFactor: 1 - minus })), target, meteredBefore);
   const high = checkTarget(judged(addCorrectionEquipment(board, equipment, { capacitanceFactor: 1 + plus })), target, meteredBefore);
   if (check.met && !low.met) warn('tolerance-low', warningText.toleranceLow(low.shortfalls));
-  if (high.leadingLines.length && !check.leadingLines.length) warn('tolerance-high', warningText.toleranceHigh(high.leadingLines));
+  if (high.leadingLines.length && !check.leadingLines.length) warn('tolerance-high', warningText.toleranceHigh(high.leadingLines.map(label)));
 
   const capacitorKvar = branches.reduce((s, b) => s + b.kvarAtAppliedV, 0);
   const rise = voltageRise(board, capacitorKvar, before, after, riseLimit);
@@ -156,7 +159,7 @@ export function verifyCorrection(board: Board, options: VerifyCorrectionOptions)
     const fixedOnly = equipment.map((g) => ({ ...g, branches: g.branches.map((b) => ({ ...b, susceptanceS: b.fixedSusceptanceS })) }));
     const fixedKvar = branchSizings(fixedOnly, lightCorrected, lightAfter).reduce((sum, b) => sum + b.kvarAtAppliedV, 0);
     const lightRise = voltageRise(board, fixedKvar, lightBefore, lightAfter, riseLimit);
-    if (leadingLines.length) warn('light-load-leading', warningText.lightLoadLeading(leadingLines));
+    if (leadingLines.length) warn('light-load-leading', warningText.lightLoadLeading(leadingLines.map(label)));
     if (lightRise.flagged) warn('voltage-rise-light-load', warningText.voltageRise('the fixed part at light load', Math.max(lightRise.estimatePercent ?? -Infinity, lightRise.solvedPercent), riseLimit), lightRise.solvedPercent, riseLimit);
     lightLoad = {
       fraction: opts.lightLoad.fraction,

@@ -12,6 +12,7 @@ import { solveBoardModel } from '../analysis/solveBoardModel.js';
 import { correctionCautions } from '../correction/correctionWording.js';
 import { conventionsOf } from '../board/conventions/boardConventions.js';
 import { regionWords } from '../board/conventions/regionWords.js';
+import { labellerOf, type PhaseLabeller } from '../board/conventions/phaseNames.js';
 import { parseHandFigures } from './validateHandFigures.js';
 import type { HandFiguresSpec } from './handFiguresSpec.js';
 import type { Compared, EffectContribution, HandCapacitor, HandCheckResult, HandEffectId, LineCheck } from './handCheckResult.js';
@@ -48,8 +49,9 @@ function planCapacitors(spec: HandFiguresSpec, board: Board): CapacitorPlan[] {
 /** The capacitors as added loads: holding the hand kvar (constant power) or as the real capacitance. */
 function capacitorLoads(plans: readonly CapacitorPlan[], board: Board, real: boolean): BoardLoad[] {
   const omega = 2 * Math.PI * board.frequencyHz;
+  const label = labelsOf(board);
   return plans.map((c) => ({
-    name: `hand capacitor ${c.spec.branch}`,
+    name: `hand capacitor ${label(c.spec.branch)}`,
     connection: c.spec.branch as ConnectionSpec,
     model: real ? 'constant-impedance' : 'constant-power',
     origin: 'added',
@@ -64,6 +66,9 @@ function capacitorLoads(plans: readonly CapacitorPlan[], board: Board, real: boo
     ],
   }));
 }
+
+/** The board file's phase labels (L1-L2 or A-B), for every sentence and name the check writes. */
+const labelsOf = (board: Board): PhaseLabeller => labellerOf(conventionsOf(board).phaseNames);
 
 const asConstantPower = (loads: readonly BoardLoad[]): BoardLoad[] => loads.map((l) => ({ ...l, branches: l.branches.map((b) => ({ ...b, zip: CONSTANT_POWER })) }));
 
@@ -161,13 +166,13 @@ export function checkHandFigures(board: Board, figures: unknown): HandCheckResul
   const allConstantPower = board.loads.every((l) => l.branches.every((b) => b.zip.p === 1));
   const ratedNotes = plans
     .filter((p) => p.spec.ratedV !== undefined && Math.abs(p.spec.ratedV - p.nominalV) > 1e-9)
-    .map((p) => effectExplanation.ratedNote(p.spec.branch, p.spec.ratedV!, p.nominalV))
+    .map((p) => effectExplanation.ratedNote(labelsOf(board)(p.spec.branch), p.spec.ratedV!, p.nominalV))
     .join('');
   const neutralBar = rNeutral.neutral?.barVoltage?.magnitude ?? 0;
 
   const f = [textbookFigures, ...results.map(figuresOf)] as const;
   const effects: EffectContribution[] = [
-    contribution('line-pair-split', effectExplanation.lineSplit(pairLoads.reduce((s, b) => s + b.sNominal.re, 0) / 1000, pairLoads.reduce((s, b) => s + b.sNominal.im, 0) / 1000, pairCapKvar, board.system === 'split-phase'), f[0], f[1]!, board),
+    contribution('line-pair-split', effectExplanation.lineSplit(pairLoads.reduce((s, b) => s + b.sNominal.re, 0) / 1000, pairLoads.reduce((s, b) => s + b.sNominal.im, 0) / 1000, pairCapKvar, board.system === 'split-phase', labelsOf(board)), f[0], f[1]!, board),
     contribution('board-voltage', hasDrop ? effectExplanation.boardVoltage(Math.min(...volts), Math.max(...volts), unbalancedSource) : effectExplanation.noDrop, f[1]!, f[2]!, board),
     contribution('neutral-return', board.hasNeutral && !board.neutralOpen ? effectExplanation.neutralReturn(rNeutral.neutral?.current.magnitude ?? 0, neutralBar) : effectExplanation.noNeutral, f[2]!, f[3]!, board),
     contribution('capacitor-voltage', effectExplanation.capacitorVoltage(capacitors.reduce((s, c) => s + c.kvarAtAppliedV, 0), plans.reduce((s, p) => s + p.handKvar, 0), ratedNotes), f[3]!, f[4]!, board),

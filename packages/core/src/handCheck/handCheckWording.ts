@@ -1,5 +1,6 @@
 /** Every sentence `trivar check` says about an effect, with the board's numbers filled in. */
 import type { HandEffectId } from './handCheckResult.js';
+import type { PhaseLabel, PhaseLabeller } from '../board/conventions/phaseNames.js';
 
 const f = (x: number, d: number): string => {
   const s = x.toFixed(d);
@@ -15,11 +16,12 @@ export const EFFECT_TITLES: Readonly<Record<HandEffectId, string>> = {
 };
 
 export const effectExplanation = {
-  lineSplit: (loadKW: number, loadKvar: number, capKvar: number, splitPhase: boolean): string =>
+  /** `label`: the board's phase labels, for the example pair. */
+  lineSplit: (loadKW: number, loadKvar: number, capKvar: number, splitPhase: boolean, label: PhaseLabeller): string =>
     splitPhase
       ? 'On a split-phase board the two half-windings are in line with the 240 V branch, so splitting its power half to each line is exact here.'
       : `A branch across two lines draws its current in step with its line-to-line voltage, 30° away from either phase voltage, so it does not take half its P and Q from each line: ` +
-        `part of its reactive power shows up as active current moved from one line to the other (a capacitor on A-B takes active current off line A and puts it on line B). ` +
+        `part of its reactive power shows up as active current moved from one line to the other (a capacitor on ${label('A-B')} takes active current off line ${label('A')} and puts it on line ${label('B')}). ` +
         `On this board ${f(loadKW, 1)} kW and ${f(loadKvar, 1)} kvar of loads and ${f(capKvar, 1)} kvar of your capacitors sit across line pairs.`,
   boardVoltage: (lowPct: number, highPct: number, unbalancedSource: boolean): string =>
     `The source and feeder impedance leave the phases at ${f(lowPct, 1)}–${f(highPct, 1)} % of nominal${unbalancedSource ? ' (with the unbalanced source voltages entered)' : ''}: ` +
@@ -30,7 +32,7 @@ export const effectExplanation = {
   noNeutral: 'This board has no neutral conductor, so there is no neutral return to account for.',
   capacitorVoltage: (appliedKvar: number, handKvar: number, ratedNote: string): string =>
     `A capacitor's output goes with the square of its voltage (Q = ωCV²): at the solved voltages your capacitors give ${f(appliedKvar, 2)} kvar, not the ${f(handKvar, 2)} kvar counted by hand (${f((100 * (appliedKvar - handKvar)) / handKvar, 1)} %).${ratedNote}`,
-  ratedNote: (branch: string, ratedV: number, nominalV: number): string =>
+  ratedNote: (branch: PhaseLabel, ratedV: number, nominalV: number): string =>
     ` The ${branch} unit is rated at ${f(ratedV, 0)} V: on ${f(nominalV, 0)} V it gives (${f(nominalV, 0)}/${f(ratedV, 0)})² = ${f((100 * nominalV * nominalV) / (ratedV * ratedV), 1)} % of its nameplate kvar.`,
   voltageDependentLoads: (solvedKW: number, solvedKvar: number, ratedKW: number, ratedKvar: number): string =>
     `Loads modelled as constant impedance or constant current follow the voltage instead of holding their rating: the board's loads draw ${f(solvedKW, 2)} kW and ${f(solvedKvar, 2)} kvar at the solved voltages against ${f(ratedKW, 2)} kW and ${f(ratedKvar, 2)} kvar rated.`,

@@ -12,11 +12,29 @@ const above = (x: number, limit: number) => `${distinctDigits(x, limit, 1)[0]} %
 export const NEUTRAL_PRACTICE =
   'with mostly non-linear single-phase loads the neutral carries the triplen currents of all three phases and is counted as a current-carrying conductor (NEC 310.15, confirmed for the 2008 numbering); a neutral of twice the phase size is the usual practice for such feeders (IEEE Std 1100, from memory)';
 
+/**
+ * The same note for a split-phase board, where the two lines are 180° apart: an odd harmonic (triplens
+ * included) of like loads on the two lines cancels in the neutral as the fundamental does, and an even
+ * one adds (i₂(t) = i₁(t − T/2) gives (−1)ʰ at order h; follows from the waveforms, no standard cited).
+ */
+export const NEUTRAL_PRACTICE_SPLIT_PHASE =
+  'on a split-phase board the two lines are 180° apart, so odd harmonics (triplens included) of like loads on the two lines cancel in the neutral as the fundamentals do and only even harmonics add: the neutral carries the difference between the lines, and non-linear loads alone do not call for a larger neutral here';
+
+/** On a single-phase board the neutral is the line's return: the same current, harmonics and all. */
+export const NEUTRAL_PRACTICE_SINGLE_PHASE = 'on a single-phase board the neutral carries the line current back, harmonics and all, and is sized as the line conductor';
+
+/** The neutral sizing note for a board's system: triplens add on a three-phase star, cancel on a split-phase board. */
+export const neutralPractice = (system: string): string =>
+  system === 'split-phase' ? NEUTRAL_PRACTICE_SPLIT_PHASE : system === 'single-phase' ? NEUTRAL_PRACTICE_SINGLE_PHASE : NEUTRAL_PRACTICE;
+
 export const harmonicsWarningText = {
   neutralOverload: (rms: number, rating: number) =>
     `the neutral carries ${rms.toFixed(1)} A rms including harmonics, above its ${rating.toFixed(0)} A rating: it overheats without tripping anything (no overcurrent device protects a neutral)`,
-  neutralAbovePhase: (ratio: number) =>
-    `the neutral current is ${ratio.toFixed(2)} × the largest line current: triplen harmonics add in the neutral instead of cancelling`,
+  /** `splitPhase`: the two lines are 180° apart, so triplens cancel there and something else makes the neutral large. */
+  neutralAbovePhase: (ratio: number, splitPhase = false) =>
+    splitPhase
+      ? `the neutral current is ${ratio.toFixed(2)} × the largest line current: the two lines' currents add in the neutral instead of cancelling (one line exporting while the other imports, or even harmonics)`
+      : `the neutral current is ${ratio.toFixed(2)} × the largest line current: triplen harmonics add in the neutral instead of cancelling`,
   resonance: (states: readonly string[], peak: number, order: number) =>
     `resonance with the supply at h ≈ ${peak.toFixed(2)}, within ±10 % of order ${order}, with the bank at ${states.length > 3 ? `${states.slice(0, 3).join(', ')} and ${states.length - 3} more state(s)` : states.join(', ')}: voltages and capacitor currents are amplified there`,
   capacitorDuty: (label: string, branch: string, what: string) => `with ${label} the capacitors of branch ${branch} exceed their limit: ${what}`,

@@ -19,7 +19,7 @@ import { IEEE_519_SOURCE, ieee519OrderLimit, ieee519Row } from './ieee519.js';
 import { checkVoltageDistortion } from './voltageDistortion.js';
 import { HARMONICS_DEFAULTS } from './harmonicsDefaults.js';
 import type { HarmonicsBoardSpec } from './harmonicsSpec.js';
-import { harmonicsCautions, harmonicsWarningText, NEUTRAL_PRACTICE } from './harmonicsWording.js';
+import { harmonicsCautions, harmonicsWarningText, neutralPractice } from './harmonicsWording.js';
 import type { CapacitorDuty, DutyCase, HarmonicLineReading, HarmonicsReport, HarmonicsWarning, NeutralCheck, ResonanceScan, TddCheck, VoltageDistortionCheck } from './harmonicsResult.js';
 import { conventionsOf } from '../board/conventions/boardConventions.js';
 import { regionWords } from '../board/conventions/regionWords.js';
@@ -57,7 +57,7 @@ export function neutralCheck(board: Board, orders: readonly OrderSolution[], lin
     ratingA: rating,
     loadingPercent: rating ? (100 * current.rms) / rating : null,
     overloaded: rating !== null && current.rms > rating,
-    practice: NEUTRAL_PRACTICE,
+    practice: neutralPractice(board.system),
   };
 }
 
@@ -193,16 +193,18 @@ export interface WarningSources {
   readonly voltageDistortion: VoltageDistortionCheck | null;
   readonly duty: CapacitorDuty | null;
   readonly tdd: TddCheck | null;
+  /** A split-phase board: its two lines are 180° apart, which the neutral warning's reason depends on. @defaultValue false */
+  readonly splitPhase?: boolean;
 }
 
 /** The study's warnings, in a fixed order: ideal source, neutral, voltage distortion, resonance, duty, TDD. */
-export function harmonicsWarnings({ scan, neutral, voltageDistortion, duty, tdd }: WarningSources, label: (term: string) => string): HarmonicsWarning[] {
+export function harmonicsWarnings({ scan, neutral, voltageDistortion, duty, tdd, splitPhase = false }: WarningSources, label: (term: string) => string): HarmonicsWarning[] {
   const warnings: HarmonicsWarning[] = [];
   const warn = (code: string, message: string, value: number | null = null, threshold: number | null = null) => warnings.push({ code, message, value, threshold });
   if (scan && scan.shortCircuitKVA === null) warn('ideal-source', harmonicsWarningText.idealSource);
   if (neutral?.overloaded) warn('neutral-overload', harmonicsWarningText.neutralOverload(neutral.current.rms, neutral.ratingA!), neutral.current.rms, neutral.ratingA);
   if (neutral?.ratioToPhase !== null && neutral?.ratioToPhase !== undefined && neutral.ratioToPhase > 1)
-    warn('neutral-above-phase', harmonicsWarningText.neutralAbovePhase(neutral.ratioToPhase), neutral.ratioToPhase, 1);
+    warn('neutral-above-phase', harmonicsWarningText.neutralAbovePhase(neutral.ratioToPhase, splitPhase), neutral.ratioToPhase, 1);
   if (voltageDistortion) {
     const { individualLimitPercent: individual, thdLimitPercent: thdLimit } = voltageDistortion;
     for (const bus of voltageDistortion.buses)
@@ -251,7 +253,7 @@ export function analyseHarmonics(board: Board, model: HarmonicModel, options: Ha
   const phaseNames = conventionsOf(board).phaseNames;
   const voltageDistortion = checkVoltageDistortion(lines, lineToLine);
   // Warnings name phases, pairs and branches the way the board file names them (L1-N or A-N).
-  const warnings = harmonicsWarnings({ scan, neutral, voltageDistortion, duty, tdd }, (term) => labelIn(phaseNames, term));
+  const warnings = harmonicsWarnings({ scan, neutral, voltageDistortion, duty, tdd, splitPhase: board.system === 'split-phase' }, (term) => labelIn(phaseNames, term));
   return {
     board: board.name,
     phaseNames,

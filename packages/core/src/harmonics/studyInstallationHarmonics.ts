@@ -173,7 +173,7 @@ export function studyInstallationHarmonicsSpec(spec: HarmonicsInstallationSpec, 
     const lineToLine = readLineToLine(orders);
     const neutral = neutralCheck(board, orders, lines);
     const voltageDistortion = checkVoltageDistortion(lines, lineToLine);
-    warnings.push(...harmonicsWarnings({ scan: null, neutral, voltageDistortion, duty: null, tdd: null }, label).map((w) => ({ ...w, board: board.name })));
+    warnings.push(...harmonicsWarnings({ scan: null, neutral, voltageDistortion, duty: null, tdd: null, splitPhase: board.system === 'split-phase' }, label).map((w) => ({ ...w, board: board.name })));
     return {
       board: board.name,
       fedFrom: b === 0 ? null : names[installation.subBoards[b - 1]!.fedFrom]!,

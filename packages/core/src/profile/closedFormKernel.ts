@@ -12,6 +12,8 @@
  */
 import type { Board } from '../board/boardModel.js';
 import { NumericalError } from '../errors.js';
+import { labelIn } from '../board/conventions/phaseNames.js';
+import { conventionsOf } from '../board/conventions/boardConventions.js';
 import type { BatchNetwork } from './batchNetwork.js';
 import {
   edgeAdmittance,
@@ -77,7 +79,7 @@ export function createClosedFormKernel(net: BatchNetwork, options?: KernelOption
           const dr = 1 + zr * gr - zi * gi;
           const di = zr * gi + zi * gr;
           const dm = dr * dr + di * di;
-          if (dm === 0) throw new NumericalError('singular', `interval ${interval + 1}: phase ${board.phases[k]} is in series resonance with the line impedance`);
+          if (dm === 0) throw new NumericalError('singular', `interval ${interval + 1}: phase ${labelIn(conventionsOf(board).phaseNames, board.phases[k]!)} is in series resonance with the line impedance`);
           const tr = (gr * dr + gi * di) / dm;
           gi = (gi * dr - gr * di) / dm;
           gr = tr;

@@ -8,7 +8,8 @@
  * combinations in ACCEPTED_SETS. Loads that no column drives are off unless the
  * caller keeps them at their rating.
  */
-import { readPhaseTerm } from '../board/conventions/phaseNames.js';
+import { labellerOf, readPhaseTerm } from '../board/conventions/phaseNames.js';
+import { conventionsOf } from '../board/conventions/boardConventions.js';
 import type { Board, BoardLoad, PhaseId } from '../board/boardModel.js';
 import type { ComplexValue } from '../complex.js';
 import { InputError, inputIssue, type InputIssue } from '../errors.js';
@@ -65,6 +66,8 @@ export function planColumns(board: Board, header: readonly string[], options: Co
   const loads: BoardLoad[] = [...board.loads];
   const loadIndex = new Map(board.loads.map((l, i) => [l.name, i]));
   const groups = options.groups ?? {};
+  // Phases in messages and in the metered loads' names as the board file names them (L1 or A).
+  const label = labellerOf(conventionsOf(board).phaseNames);
   header.slice(1).forEach((raw, c) => {
     const cell = raw.trim();
     const at = where(c + 1, cell);
@@ -81,12 +84,12 @@ export function planColumns(board: Board, header: readonly string[], options: Co
       if (phase) {
         const p = (readPhaseTerm(phase[1]!.toUpperCase())?.canonical ?? phase[1]!.toUpperCase()) as PhaseId;
         if (!board.phases.includes(p) || !board.hasNeutral) {
-          issues.push(inputIssue('unknown_target', at, `a phase of this board with a neutral (${board.hasNeutral ? board.phases.join(', ') : 'this board has none'})`, name));
+          issues.push(inputIssue('unknown_target', at, `a phase of this board with a neutral (${board.hasNeutral ? board.phases.map(label).join(', ') : 'this board has none'})`, name));
           return;
         }
         const index =
           loads.push({
-            name: `metered phase ${p}`,
+            name: `metered phase ${label(p)}`,
             connection: `${p}-N`,
             model: 'constant-power',
             origin: 'added',

@@ -7,6 +7,7 @@
  *     ─move table / fewest moves─▶ chosen answer ─network solver─▶ before/after figures
  */
 import { conventionsOf } from '../board/conventions/boardConventions.js';
+import { labellerOf } from '../board/conventions/phaseNames.js';
 import type { Installation } from '../board/boardModel.js';
 import type { ConnectionSpec } from '../board/boardSchema.js';
 import { InputError, inputIssue } from '../errors.js';
@@ -341,6 +342,8 @@ export function rebalanceInstallation(installation: Installation, study: unknown
   };
 
   const notes: string[] = [];
+  // Notes name lines the way the file does (L1 or A).
+  const label = labellerOf(conventionsOf(tree.boards[0]!).phaseNames);
   if (n === 0) notes.push(REBALANCE_NOTES.nothingToMove);
   else if (moves.length === 0) notes.push(REBALANCE_NOTES.alreadyBest);
   if (chosen.exactRan && !chosen.proven && chosen.nodes > o.nodeBudget) notes.push(REBALANCE_NOTES.budgetReached(o.nodeBudget));
@@ -350,12 +353,12 @@ export function rebalanceInstallation(installation: Installation, study: unknown
     const bounds = magnitudeBoundsWithMoveLimit(p, limit);
     const impossible = built.layouts.some((l) => l.lines.some((j, k) => bounds[j]! > resolved.lineCapacityA[k]! + tie));
     const several = tree.boards.length > 1;
-    notes.push(REBALANCE_NOTES.capacityNotMet(limit, impossible || (chosen.exactRan && chosen.proven), excesses.map((e) => REBALANCE_NOTES.excess(e, several))));
+    notes.push(REBALANCE_NOTES.capacityNotMet(limit, impossible || (chosen.exactRan && chosen.proven), excesses.map((e) => REBALANCE_NOTES.excess({ ...e, line: label(e.line) }, several))));
   }
   conditions.forEach(({ board, solved: { before: f } }) =>
     f.lineA.forEach((amps, k) => {
       const cap = resolved.lineCapacityA[k]!;
-      if (amps > cap + tie) notes.push(REBALANCE_NOTES.overCapacityNow(tree.boards.length > 1 ? board : null, tree.boards[0]!.phases[k]!, amps, cap, f.name));
+      if (amps > cap + tie) notes.push(REBALANCE_NOTES.overCapacityNow(tree.boards.length > 1 ? board : null, label(tree.boards[0]!.phases[k]!), amps, cap, f.name));
     }),
   );
   if (moves.length > 0 && solvedScore.after > solvedScore.before + tieTolerance(solvedScore.before))

@@ -1,4 +1,5 @@
 /** Every sentence a rebalancing report carries, in one place. */
+import type { PhaseLabel } from '../board/conventions/phaseNames.js';
 
 export const REBALANCE_CAUTIONS: readonly string[] = [
   'Moving a circuit is work on live-capable equipment: isolate and prove dead first; the work is for a qualified electrician under local codes and licensed practice.',
@@ -19,8 +20,8 @@ export const REBALANCE_NOTES = {
   noBound: 'The custom score broke the rule that it never falls when a figure grows, so no lower bound is reported.',
   capacityNotMet: (moveLimit: number, provenImpossible: boolean, excesses: readonly string[]) =>
     `${provenImpossible ? 'No assignment' : 'No assignment found'} with at most ${moveLimit} move${moveLimit === 1 ? '' : 's'} keeps every line within its capacity${provenImpossible ? ' (proven by the lower bound)' : ''}; this answer exceeds it least: ${excesses.join('; ')}.`,
-  excess: (e: { board: string; condition: string; line: string; currentA: number; capacityA: number; overA: number }, withBoard: boolean) =>
+  excess: (e: { board: string; condition: string; line: PhaseLabel; currentA: number; capacityA: number; overA: number }, withBoard: boolean) =>
     `line ${e.line}${withBoard ? ` at "${e.board}"` : ''} in "${e.condition}" carries ${e.currentA.toFixed(1)} A, ${e.overA.toFixed(1)} A over its ${e.capacityA.toFixed(0)} A capacity`,
-  overCapacityNow: (board: string | null, line: string, amps: number, capacity: number, condition: string) =>
+  overCapacityNow: (board: string | null, line: PhaseLabel, amps: number, capacity: number, condition: string) =>
     `The present wiring puts ${amps.toFixed(1)} A on line ${line}${board ? ` at "${board}"` : ''} in "${condition}", above its ${capacity.toFixed(0)} A capacity.`,
 } as const;

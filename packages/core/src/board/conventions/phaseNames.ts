@@ -54,12 +54,25 @@ export const phaseLabel = (naming: PhaseNaming, phase: PhaseId): string => (nami
 export const phaseLabels = (naming: PhaseNaming): Readonly<Record<PhaseId, string>> =>
   naming === 'L1/L2/L3' ? NUMBERED : { A: 'A', B: 'B', C: 'C' };
 
+/**
+ * A phase, line pair, branch or connection as a report shows it. Only `labelIn` makes one, so a
+ * sentence builder that takes `PhaseLabel`s cannot be handed an A/B/C key unlabelled.
+ */
+export type PhaseLabel = string & { readonly __phaseLabel: never };
+
 /** A report label for a phase, line pair or connection written A/B/C ("A", "A-B", "C-N", "ABC-delta"); N and other terms stay. */
-export function labelIn(naming: PhaseNaming, term: string): string {
-  if (naming === 'A/B/C') return term;
-  if (term in NUMBERED_SPELLING) return NUMBERED_SPELLING[term]!;
+export function labelIn(naming: PhaseNaming, term: string): PhaseLabel {
+  if (naming === 'A/B/C') return term as PhaseLabel;
+  if (term in NUMBERED_SPELLING) return NUMBERED_SPELLING[term] as PhaseLabel;
   return term
     .split('-')
     .map((t) => (t === 'A' || t === 'B' || t === 'C' ? NUMBERED[t] : t))
-    .join('-');
+    .join('-') as PhaseLabel;
 }
+
+/** The labeller of one naming: what a study hands its wording (`label(p.phase)`, `phases.map(label)`). */
+export type PhaseLabeller = (term: string) => PhaseLabel;
+export const labellerOf =
+  (naming: PhaseNaming): PhaseLabeller =>
+  (term) =>
+    labelIn(naming, term);

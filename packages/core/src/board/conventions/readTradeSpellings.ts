@@ -30,8 +30,11 @@ export interface SpellingReading {
 type Obj = Record<string, unknown>;
 const isObj = (x: unknown): x is Obj => typeof x === 'object' && x !== null && !Array.isArray(x);
 
-/** Objects keyed by phase (A/B/C or L1/L2/L3) or by line pair (A-B or L1-L2), as paths from the file's root. */
-class Speller {
+/**
+ * Turns one file's phase terms into A/B/C, keeping to the naming the file starts with; used for board
+ * and installation files here and for a study's own input files (hand figures).
+ */
+export class Speller {
   first: { naming: PhaseNaming; path: string } | null = null;
   readonly issues: InputIssue[] = [];
 

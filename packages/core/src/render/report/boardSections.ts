@@ -63,7 +63,7 @@ export function systemFacts(result: BoardResult): [string, string][] {
   return [
     ['System', SYSTEM_WORDS[b.system] ?? b.system],
     ['Nominal voltage', `${b.nominalLineToLineV !== null ? `${fixed(b.nominalLineToLineV, 0)} V line-to-line, ` : ''}${fixed(b.nominalLineToNeutralV, 1)} V line-to-neutral`],
-    result.sequences ? ['Frequency and phase sequence', `${b.frequencyHz} Hz, ${b.sequence}`] : ['Frequency', `${b.frequencyHz} Hz`],
+    result.sequences ? ['Frequency and phase sequence', `${b.frequencyHz} Hz, ${labelIn(result.conventions.phaseNames, b.sequence)}`] : ['Frequency', `${b.frequencyHz} Hz`],
   ];
 }
 

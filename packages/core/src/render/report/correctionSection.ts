@@ -9,6 +9,7 @@ import { renderPhasorDiagram } from '../renderPhasorDiagram.js';
 import { renderCurrentTriangles } from '../renderCurrentTriangles.js';
 import type { ReportBlock, ReportSection } from './reportDocument.js';
 import { CHARACTERISTIC_ORDERS, RESONANCE_NEAR_FRACTION } from './reportWording.js';
+import { labellerOf } from '../../board/conventions/phaseNames.js';
 
 const ARRANGEMENT_WORDS: Readonly<Record<string, string>> = {
   'star-bank': 'capacitor bank in star',
@@ -25,6 +26,7 @@ export function lossChangeWords(beforeKW: number, afterKW: number, reductionKW: 
 function equipmentTable(report: CorrectionReport): ReportBlock | null {
   const sel = report.selection;
   if (!sel) return null;
+  const label = labellerOf(report.verification.before.conventions.phaseNames);
   return {
     kind: 'table',
     caption: `Equipment to install (${sel.units} units, ${fixed(sel.deliveredKvar, 1)} kvar delivered, ${fixed(sel.nameplateKvar, 1)} kvar nameplate; ${sel.catalogueNote})`,
@@ -40,7 +42,7 @@ function equipmentTable(report: CorrectionReport): ReportBlock | null {
     ],
     rows: sel.steps.map((s) => [
       s.output === null ? 'fixed' : String(s.output),
-      s.branches.join(' '),
+      s.branches.map(label).join(' '),
       `${s.unit.name} (${fixed(s.unit.ratedKvar, 1)} kvar ${fixed(s.unit.ratedV, 0)} V)`,
       String(s.units),
       fixed(s.nameplateKvar, 1),
@@ -54,6 +56,8 @@ function equipmentTable(report: CorrectionReport): ReportBlock | null {
 
 export function correctionSection(report: CorrectionReport): ReportSection {
   const v = report.verification;
+  // Lines as the board file names them (L1 or A).
+  const label = labellerOf(v.before.conventions.phaseNames);
   const blocks: ReportBlock[] = [
     { kind: 'paragraph', text: report.summary },
     {
@@ -86,7 +90,7 @@ export function correctionSection(report: CorrectionReport): ReportSection {
       { label: 'PF after', align: 'right' },
     ],
     rows: v.lines.map((l) => [
-      report.verification.before.conventions.phaseLabels[l.phase],
+      label(l.phase),
       fixed(l.currentA.before, 1),
       fixed(l.currentA.after, 1),
       `${fixed(l.activeCurrentA.before, 1)} → ${fixed(l.activeCurrentA.after, 1)}`,
@@ -101,7 +105,7 @@ export function correctionSection(report: CorrectionReport): ReportSection {
   if (v.lightLoad) {
     blocks.push({
       kind: 'paragraph',
-      text: `At ${fixed(100 * v.lightLoad.fraction, 0)} % load with only the fixed part (${fixed(v.lightLoad.fixedKvar, 2)} kvar) connected: ${v.lightLoad.ok ? 'no line leads' : `line(s) ${v.lightLoad.leadingLines.join(', ')} lead`}.`,
+      text: `At ${fixed(100 * v.lightLoad.fraction, 0)} % load with only the fixed part (${fixed(v.lightLoad.fixedKvar, 2)} kvar) connected: ${v.lightLoad.ok ? 'no line leads' : `line(s) ${v.lightLoad.leadingLines.map(label).join(', ')} lead`}.`,
     });
   }
   if (v.warnings.length || report.warnings.length) blocks.push({ kind: 'list', tone: 'warning', items: [...new Set([...report.warnings, ...v.warnings].map((w) => w.message))] });

@@ -2,6 +2,7 @@
 import type { ProfileResult } from '../../profile/studyProfile.js';
 import { fixed } from '../svgText.js';
 import type { ReportBlock, ReportSection } from './reportDocument.js';
+import { labellerOf, type PhaseNaming } from '../../board/conventions/phaseNames.js';
 
 export interface ProfileChart {
   /** File-safe short name. */
@@ -12,8 +13,12 @@ export interface ProfileChart {
 
 const orDash = (x: number | null, d: number): string => (x === null ? '—' : fixed(x, d));
 
-export function profileSection(p: ProfileResult, charts: readonly ProfileChart[]): ReportSection {
+/**
+ * @param naming the board's phase naming (`result.conventions.phaseNames`): conductors and phases are labelled that way @defaultValue 'A/B/C'
+ */
+export function profileSection(p: ProfileResult, charts: readonly ProfileChart[], naming: PhaseNaming = 'A/B/C'): ReportSection {
   const s = p.before;
+  const label = labellerOf(naming);
   const blocks: ReportBlock[] = [
     {
       kind: 'facts',
@@ -31,14 +36,14 @@ export function profileSection(p: ProfileResult, charts: readonly ProfileChart[]
       kind: 'table',
       caption: 'Conductor currents over the period',
       columns: [{ label: 'Conductor' }, { label: 'Highest A', align: 'right' }, { label: 'When' }, { label: '99th % A', align: 'right' }, { label: '95th % A', align: 'right' }, { label: 'Rating A', align: 'right' }, { label: 'Hours over', align: 'right' }],
-      rows: s.conductors.map((c) => [c.conductor, fixed(c.maxA, 1), c.maxAt, fixed(c.p99A, 1), fixed(c.p95A, 1), orDash(c.ratingA, 0), orDash(c.hoursAboveLimit, 1)]),
+      rows: s.conductors.map((c) => [label(c.conductor), fixed(c.maxA, 1), c.maxAt, fixed(c.p99A, 1), fixed(c.p95A, 1), orDash(c.ratingA, 0), orDash(c.hoursAboveLimit, 1)]),
       note: 'Hours over: above the conductor rating; for the neutral, above the neutral limit of the study.',
     },
     {
       kind: 'table',
       caption: 'Phase voltages over the period, % of nominal',
       columns: [{ label: 'Phase' }, { label: 'Lowest %', align: 'right' }, { label: 'When' }, { label: 'Highest %', align: 'right' }, { label: 'When' }],
-      rows: s.voltages.map((v) => [v.phase, fixed(v.minPercent, 1), v.minAt, fixed(v.maxPercent, 1), v.maxAt]),
+      rows: s.voltages.map((v) => [label(v.phase), fixed(v.minPercent, 1), v.minAt, fixed(v.maxPercent, 1), v.maxAt]),
     },
     ...charts.map((c): ReportBlock => ({ kind: 'figure', name: `profile-${c.name}`, caption: c.caption, svg: c.svg })),
   ];
