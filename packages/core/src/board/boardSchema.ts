@@ -67,6 +67,19 @@ export const PHYSICAL_RANGES = {
   loadReactanceOhms: { min: -1e7, max: 1e7, unit: 'ohm' },
 } as const satisfies Record<string, PhysicalRange>;
 
+/** Longest board or circuit name: a name heads a table row and a box in the drawings. */
+export const NAME_MAX_CHARACTERS = 100;
+
+/** A board or circuit name: some visible text, short enough to head a table row. */
+export const nameSchema = (what: string) =>
+  z
+    .string()
+    .min(1)
+    .max(NAME_MAX_CHARACTERS)
+    // An empty name is min(1)'s to report; this catches names of spaces only.
+    .regex(/^$|\S/, { message: 'a name with at least one visible character' })
+    .describe(`${what} (at most ${NAME_MAX_CHARACTERS} characters)`);
+
 export const SYSTEMS = ['three-phase-4wire', 'three-phase-3wire', 'single-phase', 'split-phase'] as const;
 export const CONNECTIONS = ['A-N', 'B-N', 'C-N', 'A-B', 'B-C', 'C-A', 'ABC-star', 'ABC-delta'] as const;
 export const LOAD_MODELS = ['constant-impedance', 'constant-current', 'constant-power'] as const;
@@ -184,7 +197,7 @@ export const feederSchema = z
   .describe('the cable or busway that feeds the board');
 
 export const loadSchema = z.strictObject({
-  name: z.string().min(1).describe('circuit name'),
+  name: nameSchema('circuit name'),
   circuit: z.string().min(1).optional().describe('circuit number or way on the board, for the panel schedule (default: position in the list)'),
   breakerA: within(PHYSICAL_RANGES.ratingA).optional().describe('rated current of the circuit breaker or fuse, A (shown in the panel schedule)'),
   poles: z
