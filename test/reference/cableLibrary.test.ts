@@ -21,8 +21,8 @@ import { conductorResistance, solveInstallation } from '@trivar/core';
 
 const kft = 1000 / 0.3048 / 1000; // Ω/kft → Ω/km
 
-/** IEC 60228 Table 2, class 2, Ω/km at 20 °C: [mm², copper, aluminium (null: not in the table)]. */
-const IEC_60228_TABLE_2: readonly [number, number, number | null][] = [
+/** IEC 60228 Table 2, class 2, Ω/km at 20 °C: [mm², copper, aluminium] (null: not in the table). */
+const IEC_60228_TABLE_2: readonly [number, number | null, number | null][] = [
   [1.5, 12.1, null], [2.5, 7.41, null], [4, 4.61, null], [6, 3.08, null], [10, 1.83, 3.08], [16, 1.15, 1.91],
   [25, 0.727, 1.2], [35, 0.524, 0.868], [50, 0.387, 0.641], [70, 0.268, 0.443], [95, 0.193, 0.32], [120, 0.153, 0.253],
   [150, 0.124, 0.206], [185, 0.0991, 0.164], [240, 0.0754, 0.125], [300, 0.0601, 0.1], [400, 0.047, 0.0778],
