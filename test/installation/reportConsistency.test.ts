@@ -5,7 +5,7 @@
  */
 import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
-import { readBoardText, solveInstallation, type InstallationResult } from '@trivar/core';
+import { buildInstallationReport, parseInstallation, readBoardText, solveInstallation, type InstallationResult } from '@trivar/core';
 import { expectClose } from '../support/tolerance.js';
 
 const example = (file: string) => readBoardText(readFileSync(new URL(`../../examples/${file}`, import.meta.url), 'utf8'));
@@ -62,5 +62,30 @@ describe('an installation result agrees with itself', () => {
     const heavy = stressed(16, 100);
     expectConsistent(heavy);
     expect(heavy.boards[1]!.result.warnings.map((w) => w.code)).toEqual(expect.arrayContaining(['line-over-rating', 'neutral-over-rating']));
+  });
+});
+
+describe('units and labels the trade writes', () => {
+  it('208Y/120 with AWG and kcmil feeders in feet: notation kept, sizes and lengths in their own units', () => {
+    const spec = parseInstallation(
+      readBoardText(`supply: { voltage: 208Y/120, frequencyHz: 60 }
+boards:
+  - { name: MDP, feeder: { lengthFt: 40, line: { kcmil: 350 }, neutral: { kcmil: 350 } }, loads: [] }
+  - { name: Panel A, fedFrom: MDP, feeder: { lengthFt: 120, line: { awg: '1/0', material: aluminum }, neutral: { awg: '1/0', material: aluminum } }, loads: [{ name: dryers, connection: A-N, kW: 6 }] }
+`),
+    );
+    const r = solveInstallation(spec);
+    expect(r.boards[0]!.result.conventions.voltageNotation).toBe('208Y/120 V');
+    expect(buildInstallationReport({ spec, result: r }).subtitle).toMatch(/ · 208Y\/120 V · 60 Hz$/);
+    expect(r.feeders.map((f) => f.description)).toEqual(['350 kcmil Cu, 40 ft at 75 °C', '1/0 AWG Al, 120 ft at 75 °C']);
+  });
+  it.each([
+    [{ system: 'three-phase-4wire', voltage: { lineToLine: 400 }, frequencyHz: 50 }, '230.9/400 V'],
+    [{ voltage: '230/400', frequencyHz: 50 }, '230/400 V'],
+    [{ system: 'split-phase', voltage: { lineToNeutral: 120 }, frequencyHz: 60 }, '120/240 V'],
+    [{ system: 'three-phase-3wire', voltage: { lineToLine: 480 }, frequencyHz: 60 }, '480 V'],
+  ])('supply %o is written %s in the installation report', (supply, words) => {
+    const spec = parseInstallation({ supply, boards: [{ name: 'Main', loads: [{ name: 'x', connection: 'A-B', kW: 1 }] }] });
+    expect(buildInstallationReport({ spec, result: solveInstallation(spec) }).subtitle).toContain(` · ${words} · `);
   });
 });

@@ -130,7 +130,8 @@ export interface InstallationReportOptions {
 
 export function renderInstallationReport(r: InstallationResult, options: InstallationReportOptions): string {
   const first = r.boards[0]!.result.board;
-  const volts = first.nominalLineToLineV ? `${fixed(first.nominalLineToLineV, 0)}/${fixed(first.nominalLineToNeutralV, 0)} V` : `${fixed(first.nominalLineToNeutralV, 0)} V`;
+  // The trade's notation, the region's way round (230/400 V, 208Y/120 V, 120/240 V).
+  const volts = r.boards[0]!.result.conventions.voltageNotation;
   const t = r.totals;
   const warnings = r.boards.flatMap((b) => b.result.warnings.map((w) => wrapText(`${b.name}: ${w.message}`, '  ! ')));
   const cautions = [...new Set(r.boards.flatMap((b) => b.result.cautions))];

@@ -112,7 +112,7 @@ export function renderOneLineDiagram(result: InstallationResult, options: OneLin
     ? `<circle${attrs({ cx: sx, cy: sy - 6, r: 11, fill: 'none', stroke: INK, 'stroke-width': 1.5 })}/><circle${attrs({ cx: sx, cy: sy + 8, r: 11, fill: 'none', stroke: INK, 'stroke-width': 1.5 })}/>`
     : `<circle${attrs({ cx: sx, cy: sy, r: 13, fill: 'none', stroke: INK, 'stroke-width': 1.5 })}/><path${attrs({ d: `M ${coord(sx - 8)} ${coord(sy)} q 4 -8 8 0 t 8 0`, fill: 'none', stroke: INK, 'stroke-width': 1.3 })}/>`;
   const b = first.board;
-  const volts = b.nominalLineToLineV !== null ? `${fixed(b.nominalLineToLineV, 0)}/${fixed(b.nominalLineToNeutralV, 0)} V` : `${fixed(b.nominalLineToNeutralV, 0)} V`;
+  const volts = first.conventions.voltageNotation;
   const transformerLine = first.transformer ? [`transformer ${fixed(first.transformer.ratedKVA, 0)} kVA`] : [];
   const supplyLines = (options.supplyLines ?? [`Supply ${volts} · ${b.frequencyHz} Hz`, ...transformerLine]).slice(0, 2);
   const supplyTextWidth = width - (sx + 24) - L.margin;
