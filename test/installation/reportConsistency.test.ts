@@ -86,6 +86,7 @@ boards:
     [{ system: 'three-phase-3wire', voltage: { lineToLine: 480 }, frequencyHz: 60 }, '480 V'],
   ])('supply %o is written %s in the installation report', (supply, words) => {
     const spec = parseInstallation({ supply, boards: [{ name: 'Main', loads: [{ name: 'x', connection: 'A-B', kW: 1 }] }] });
-    expect(buildInstallationReport({ spec, result: solveInstallation(spec) }).subtitle).toContain(` · ${words} · `);
+    // One board is "1 board", not "1 boards".
+    expect(buildInstallationReport({ spec, result: solveInstallation(spec) }).subtitle).toBe(`Installation report · 1 board · ${words} · ${supply.frequencyHz} Hz`);
   });
 });

@@ -136,7 +136,7 @@ export function renderInstallationReport(r: InstallationResult, options: Install
   const warnings = r.boards.flatMap((b) => b.result.warnings.map((w) => wrapText(`${b.name}: ${w.message}`, '  ! ')));
   const cautions = [...new Set(r.boards.flatMap((b) => b.result.cautions))];
   const parts = [
-    [r.installation.name, `${SYSTEM_WORDS[r.installation.system] ?? r.installation.system} · ${volts} · ${first.frequencyHz} Hz · ${r.installation.boardCount} boards`].join('\n'),
+    [r.installation.name, `${SYSTEM_WORDS[r.installation.system] ?? r.installation.system} · ${volts} · ${first.frequencyHz} Hz · ${r.installation.boardCount} board${r.installation.boardCount === 1 ? '' : 's'}`].join('\n'),
     ...collapseBlock(r),
     section('Boards') + boardTable(r) + `\n${note("own: this board's circuits; fed: what its feeder delivers, boards beyond it included.")}`,
     section('Feeders') +

@@ -173,7 +173,7 @@ export function renderOneLineDiagram(result: InstallationResult, options: OneLin
     `<title>${escapeXml(`${title}: ${result.installation.name}`)}</title>` +
     `<rect${attrs({ x: 0, y: 0, width, height, fill: '#FFFFFF' })}/>` +
     text(16, 22, 15, fit(title, width - 32, 15), { 'font-weight': 'bold' }) +
-    text(16, 40, 11, fit(`${result.installation.name} · ${result.installation.boardCount} boards`, width - 32, 11), { fill: MUTED_INK }) +
+    text(16, 40, 11, fit(`${result.installation.name} · ${result.installation.boardCount} board${result.installation.boardCount === 1 ? '' : 's'}`, width - 32, 11), { fill: MUTED_INK }) +
     parts.join('') +
     `</svg>\n`
   );

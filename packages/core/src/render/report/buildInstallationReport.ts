@@ -68,7 +68,7 @@ export function buildInstallationReport(input: InstallationReportInput): ReportD
   const volts = result.boards[0]!.result.conventions.voltageNotation;
   return {
     title: result.installation.name,
-    subtitle: `Installation report · ${result.installation.boardCount} boards · ${volts} · ${main.frequencyHz} Hz`,
+    subtitle: `Installation report · ${result.installation.boardCount} board${result.installation.boardCount === 1 ? '' : 's'} · ${volts} · ${main.frequencyHz} Hz`,
     sections,
   };
 }
