@@ -56,6 +56,12 @@ const installationCases: [string, unknown, string, string, RegExp][] = [
   ['a blank board name', editInstallation((b) => (b.boards[2].name = '   ')), 'invalid_format', 'boards[2].name', /visible character/],
   ['a circuit name of 101 characters', editInstallation((b) => (b.boards[1].loads[0].name = 'f'.repeat(101))), 'out_of_range', 'boards[1].loads[0].name', /at most 100 characters/],
   ['fedFrom differing only in spaces and case', editInstallation((b) => (b.boards[2].fedFrom = 'floor  1 ')), 'unknown_board', 'boards[2].fedFrom', /"Floor 1" differs only in spaces or letter case/],
+  // A conductor written flat or per phase: the issue names the field and its own fault, not "unknown key".
+  ['a size written as text', editInstallation((b) => (b.boards[1].feeder.line = { mm2: '25' })), 'invalid_type', 'boards[1].feeder.line.mm2', /a number/],
+  ['a rating written as text beside a good size', editInstallation((b) => (b.boards[1].feeder.line = { mm2: 25, ratingA: '100 A' })), 'invalid_type', 'boards[1].feeder.line.ratingA', /a number/],
+  ['a per-phase size written as text', editInstallation((b) => (b.boards[1].feeder.line = { A: { mm2: '25' }, B: { mm2: 25 }, C: { mm2: 25 } })), 'invalid_type', 'boards[1].feeder.line.A.mm2', /a number/],
+  ['an unknown key beside a size', editInstallation((b) => (b.boards[1].feeder.line = { mm2: 25, colour: 'brown' })), 'unknown_key', 'boards[1].feeder.line.colour', /documented keys/],
+  ['a line conductor that is a number', editInstallation((b) => (b.boards[1].feeder.line = 25)), 'invalid_type', 'boards[1].feeder.line', /an object/],
   ['an AWG size as a long text', editInstallation((b) => (b.boards[1].feeder.line = { awg: '4/0 AWG copper THHN' })), 'out_of_range', 'boards[1].feeder.line.awg', /text of at most 12 characters/],
   [
     'a YAML merge key into a board',
@@ -88,6 +94,7 @@ const supplyCases: [string, unknown, string, string][] = [
     b.supply.bank = { A: { r: 0.01, x: 0.01 }, B: { r: 0.01, x: 0.01 }, C: { r: 0.01, x: 0.01 } };
   }), 'conflict', 'supply'],
   ['per-phase impedance with a phase missing', editBoard((b) => (b.supply.impedance = { A: { r: 0.01, x: 0.02 }, C: { r: 0.01, x: 0.02 } })), 'missing', 'supply.impedance.B'],
+  ['a source resistance written as text', editBoard((b) => (b.supply.impedance = { r: '0.01', x: 0.02 })), 'invalid_type', 'supply.impedance.r'],
   ['a negative per-phase resistance', editBoard((b) => (b.supply.impedance = { A: { r: -0.01, x: 0.02 }, B: { r: 0.01, x: 0.02 }, C: { r: 0.01, x: 0.02 } })), 'out_of_range', 'supply.impedance.A.r'],
 ];
 

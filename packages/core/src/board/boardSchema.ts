@@ -91,7 +91,7 @@ const impedanceOf = (r: PhysicalRange, x: PhysicalRange) =>
       x: within(x).describe('reactance, ohm (positive inductive, negative capacitive)'),
     })
     .describe('series impedance R + jX in ohm');
-const impedanceSchema = impedanceOf(PHYSICAL_RANGES.supplyOhms, PHYSICAL_RANGES.supplyReactanceOhms);
+export const impedanceSchema = impedanceOf(PHYSICAL_RANGES.supplyOhms, PHYSICAL_RANGES.supplyReactanceOhms);
 const loadImpedanceSchema = impedanceOf(PHYSICAL_RANGES.loadOhms, PHYSICAL_RANGES.loadReactanceOhms);
 
 const phaseEmfSchema = z.strictObject({
@@ -107,7 +107,7 @@ const transformerSchema = z
   })
   .describe('supply transformer; its impedance is referred to the board voltage');
 
-const conductorSchema = z
+export const conductorSchema = z
   .strictObject({
     r: within(PHYSICAL_RANGES.supplyOhms).optional().describe('resistance, ohm'),
     x: within(PHYSICAL_RANGES.supplyOhms).optional().describe('reactance, ohm'),
@@ -125,11 +125,11 @@ const conductorSchema = z
   })
   .describe('a conductor: r and x directly; or a length with rOhmPerKm, or with a size (mm2, awg or kcmil)');
 
-const perPhaseConductorSchema = z
+export const perPhaseConductorSchema = z
   .strictObject({ A: conductorSchema.optional(), B: conductorSchema.optional(), C: conductorSchema.optional() })
   .describe('a different conductor for each phase');
 
-const perPhaseImpedanceSchema = z
+export const perPhaseImpedanceSchema = z
   .strictObject({ A: impedanceSchema.optional(), B: impedanceSchema.optional(), C: impedanceSchema.optional() })
   .describe('a different source impedance for each phase, ohm');
 
