@@ -12,6 +12,7 @@ const blocks = [
   ['installation-output', ['solve', 'examples/maple-court-riser.yaml']],
   ['regions-output', ['solve', 'examples/pine-hollow-cabin.yaml']],
   ['installation-correct-output', ['correct', 'examples/tannery-lane-works.yaml', '--board', 'Press shop', '--arrangement', 'star-bank']],
+  ['installation-metered-output', ['correct', 'examples/tannery-lane-works.yaml', '--board', 'Press shop', '--measured-at', 'origin', '--pf', '0.97', '--arrangement', 'star-bank']],
   ['harmonics-output', ['harmonics', 'examples/mill-street-offices.yaml']],
   ['correct-detuned-output', ['correct', 'examples/quayside-print-works.yaml']],
   ['check-output', ['check', 'examples/riverside-cold-store.yaml', 'examples/hand-figures/riverside-cold-store.yaml']],

@@ -79,6 +79,48 @@ describe('trivar correct on an installation file', () => {
   });
 });
 
+describe('--measured-at: the target judged away from the bank board', () => {
+  it('origin: the report says where, adds the readings there, and --json is the library result exactly', () => {
+    const args = ['correct', works, '--board', 'Press shop', '--measured-at', 'origin', '--pf', '0.97', '--arrangement', 'star-bank'];
+    const r = runTrivar(args);
+    expect(r.stderr).toBe('');
+    expect(r.code).toBe(0);
+    expect(r.stdout).toContain("The target is judged at the origin of the installation (the supply's terminals");
+    expect(r.stdout).toContain('Where the target is measured, before → after');
+    // Every line at the origin reaches 0.97, as printed.
+    const block = r.stdout.split('Where the target is measured')[1]!.split('Lines, before')[0]!;
+    const after = [...block.matchAll(/→ (0\.\d{3}) lag\n/g)].map((m) => Number(m[1]));
+    expect(after).toHaveLength(3);
+    for (const pf of after) expect(pf).toBeGreaterThanOrEqual(0.97);
+    for (const line of r.stdout.split('\n')) expect(line.length, line).toBeLessThanOrEqual(100);
+    const json = runTrivar([...args, '--json']);
+    const installation = normaliseInstallation(parseInstallation(readBoardText(readFileSync(`${ROOT}${works}`, 'utf8')))).installation;
+    const expected = correctInstallation(installation, { arrangement: 'star-bank', target: { pf: 0.97, measuredAt: 'origin' } }, { board: 'Press shop' });
+    expect(JSON.parse(json.stdout)).toEqual(JSON.parse(JSON.stringify(expected)));
+  });
+
+  it('a board beside the bank: exit 3, naming --measured-at and the points it accepts', () => {
+    const r = runTrivar(['correct', works, '--board', 'Press shop', '--measured-at', 'Offices']);
+    expect(r.code).toBe(3);
+    expect(r.stderr).toContain('--measured-at: expected origin');
+    expect(r.stderr).toContain('"Press shop", "Main switchboard" (received "Offices")');
+    expect(r.stdout).toBe('');
+  });
+
+  it("in the file's correction section: an unknown point is named at correction.target.measuredAt", () => {
+    const text = `${readFileSync(`${ROOT}${works}`, 'utf8')}correction: { board: Press shop, arrangement: star-bank, target: { measuredAt: Weighbridge } }\n`;
+    const r = runTrivar(['correct', '-'], text);
+    expect(r.code).toBe(3);
+    expect(r.stderr).toContain('correction.target.measuredAt: expected origin');
+  });
+
+  it('on a single-board file, origin takes in the service cable', () => {
+    const r = runTrivar(['correct', 'examples/riverside-cold-store.yaml', '--measured-at', 'origin', '--arrangement', 'delta-bank']);
+    expect([0, 5]).toContain(r.code);
+    expect(r.stdout).toContain('measured at the origin of the installation');
+  });
+});
+
 describe('the file names the board: correction.board', () => {
   const withSection = (section: string) => {
     const dir = mkdtempSync(join(tmpdir(), 'trivar-correct-'));

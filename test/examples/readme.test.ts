@@ -35,6 +35,12 @@ describe('README', () => {
     const shown = block.replace(/^\s*```text\n/, '').replace(/```\s*$/, '');
     expect(shown.trimEnd()).toBe(runTrivar(['correct', 'examples/tannery-lane-works.yaml', '--board', 'Press shop', '--arrangement', 'star-bank']).stdout.trimEnd());
   });
+  it('metered installation correction block matches `trivar correct examples/tannery-lane-works.yaml --board "Press shop" --measured-at origin --pf 0.97 --arrangement star-bank`', () => {
+    const block = readme.split('<!-- installation-metered-output:start -->')[1]!.split('<!-- installation-metered-output:end -->')[0]!;
+    const shown = block.replace(/^\s*```text\n/, '').replace(/```\s*$/, '');
+    const args = ['correct', 'examples/tannery-lane-works.yaml', '--board', 'Press shop', '--measured-at', 'origin', '--pf', '0.97', '--arrangement', 'star-bank'];
+    expect(shown.trimEnd()).toBe(runTrivar(args).stdout.trimEnd());
+  });
   it('harmonics output block matches `trivar harmonics examples/mill-street-offices.yaml`', () => {
     const block = readme.split('<!-- harmonics-output:start -->')[1]!.split('<!-- harmonics-output:end -->')[0]!;
     const shown = block.replace(/^\s*```text\n/, '').replace(/```\s*$/, '');

@@ -41,6 +41,7 @@ Examples:
   trivar correct examples/riverside-cold-store.yaml --arrangement star-bank --pf 0.97
   trivar correct examples/corner-bakery.yaml --arrangement balancing-compensator
   trivar correct examples/tannery-lane-works.yaml --board "Press shop" --arrangement star-bank
+  trivar correct examples/tannery-lane-works.yaml --board "Press shop" --measured-at origin --arrangement star-bank
   trivar correct board.yaml --arrangement delta-bank --definition effective --light-load 0.2 --json
 
 Exit codes: as for solve, plus
@@ -200,6 +201,7 @@ export function createProgram(io: CliIo, outcome: RunOutcome = { exitCode: EXIT.
     .description('size a capacitor bank or balancing compensator for a power-factor target, choose units, and verify by re-solving')
     .argument('<board>', 'board or installation file (YAML or JSON), or - for standard input')
     .option('--board <name>', 'installation files: the board the equipment goes on (default: the main board)')
+    .option('--measured-at <point>', "where the target is measured: origin (the supply's terminals) or a board the equipment's board is fed through (default: the equipment's board)")
     .addOption(new Option('--arrangement <kind>', 'what to size (default: compare every arrangement that fits the board)').choices(['star-bank', 'delta-bank', 'balancing-compensator']))
     .option('--pf <value>', 'target power factor (0 < pf <= 1; default 0.95)', numberIn(0, 1, 'a power factor above 0 and at most 1'))
     .addOption(

@@ -128,6 +128,7 @@ export type { InstallationCorrection, InstallationComparison, CorrectInstallatio
 export { correctInstallation, compareInstallationCorrections, installationBoardIndex } from './correction/correctInstallation.js';
 export type { InstallationEffect, BoardEffect, IncomerLineEffect, SupplyEffect } from './correction/installationEffect.js';
 export { installationEffect } from './correction/installationEffect.js';
+export { ORIGIN_POINT, meteringPoints, meteringPointIssues } from './correction/meteringPoint.js';
 export type * from './correction/correctionResult.js';
 export { CORRECTION_CAUTIONS } from './correction/correctionWording.js';
 

@@ -1,8 +1,9 @@
 /** `trivar check`: solve the board with the capacitors of a hand calculation and explain every difference. */
-import { addHandCapacitors, checkHandFigures, InputError, normaliseBoard, parseBoard, readBoardText, renderCurrentTriangles, solveBoardModel, type HandCheckResult } from '@trivar/core';
+import { addHandCapacitors, checkHandFigures, InputError, isInstallationInput, normaliseBoard, parseBoard, readBoardText, renderCurrentTriangles, solveBoardModel, type HandCheckResult } from '@trivar/core';
 import { assertNotInput, writeOutputFile } from '../outputFiles.js';
 import type { CliIo } from '../io.js';
-import { UsageError } from '../exitCodes.js';
+import { EXIT, UsageError } from '../exitCodes.js';
+import { HAND_FIGURES_ON_INSTALLATION } from '../handFiguresWording.js';
 import { renderHandCheckReport } from '../format/handCheckReport.js';
 import { writeResult } from '../writeResult.js';
 
@@ -23,7 +24,9 @@ export async function readFigures(path: string, io: CliIo): Promise<string> {
 }
 
 export async function runCheck(boardFile: string, figuresFile: string, options: CheckCommandOptions, io: CliIo): Promise<HandCheckResult> {
-  const spec = parseBoard(readBoardText(await io.readSource(boardFile)));
+  const raw = readBoardText(await io.readSource(boardFile));
+  if (isInstallationInput(raw)) throw new UsageError(`${boardFile}: ${HAND_FIGURES_ON_INSTALLATION}`, EXIT.input);
+  const spec = parseBoard(raw);
   const figures = readBoardText(await readFigures(figuresFile, io));
   if (options.diagram) assertNotInput([options.diagram], [boardFile, figuresFile]);
   const board = normaliseBoard(spec);

@@ -1,5 +1,5 @@
 /** `trivar correct`: size, choose and verify power-factor correction for a board. */
-import { boardHasHarmonicData, compareCorrections, compareInstallationCorrections, compareWithHarmonics, correctBoard, correctInstallation, correctWithHarmonics, InputError, installationBoardIndex, isInstallationInput, normaliseBoard, normaliseInstallation, parseBoard, parseInstallation, readBoardText, type CorrectionComparison, type CorrectionReport, type HarmonicComparison, type HarmonicCorrectionReport } from '@trivar/core';
+import { boardOfInstallation, meteringPointIssues, boardHasHarmonicData, compareCorrections, compareInstallationCorrections, compareWithHarmonics, correctBoard, correctInstallation, correctWithHarmonics, InputError, installationBoardIndex, isInstallationInput, normaliseBoard, normaliseInstallation, parseBoard, parseInstallation, readBoardText, type CorrectionComparison, type CorrectionReport, type HarmonicComparison, type HarmonicCorrectionReport } from '@trivar/core';
 import type { CliIo } from '../io.js';
 import { writeResult } from '../writeResult.js';
 import { renderCorrectionReport } from '../format/correctionReport.js';
@@ -21,6 +21,8 @@ export interface CorrectCommandOptions {
   readonly maxInputMb?: number;
   /** Installation files: the board the equipment goes on (default: the main board). */
   readonly board?: string;
+  /** Where the target is measured: `origin` or a board the equipment's board is fed through. */
+  readonly measuredAt?: string;
 }
 
 /** The board file's `correction` section with the command-line options laid over it. */
@@ -32,6 +34,7 @@ function studySpec(fromFile: Record<string, unknown> | undefined, o: CorrectComm
   if (o.definition !== undefined) target.definition = o.definition;
   if (o.allowLeading) target.leading = 'allowed';
   if (o.upperPf !== undefined) target.maxLaggingPf = o.upperPf;
+  if (o.measuredAt !== undefined) target.measuredAt = o.measuredAt;
   if (Object.keys(target).length) spec.target = target;
   if (o.lightLoad !== undefined) spec.lightLoad = { ...((spec.lightLoad as object | undefined) ?? {}), fraction: o.lightLoad };
   if (o.practice !== undefined) spec.practice = o.practice;
@@ -77,6 +80,9 @@ function runCorrectInstallation(input: unknown, options: CorrectCommandOptions, 
   const study = studySpec(fromFile as Record<string, unknown>, options);
   const boardName = options.board ?? fileBoard;
   const placement = boardName === undefined ? {} : { board: boardName };
+  // Also checked before the study, so the error names the option.
+  const issues = meteringPointIssues(boardOfInstallation(installation, installationBoardIndex(installation, boardName)), options.measuredAt, '--measured-at');
+  if (issues.length) throw new InputError(issues, 'the options do not fit the installation');
   try {
     if (study.arrangement === undefined) {
       const compared = compareInstallationCorrections(installation, study, placement);
@@ -101,6 +107,10 @@ export async function runCorrect(file: string, options: CorrectCommandOptions, i
     );
   const spec = parseBoard(input);
   const study = studySpec(spec.correction as Record<string, unknown> | undefined, options);
+  if (options.measuredAt !== undefined) {
+    const issues = meteringPointIssues(normaliseBoard(spec), options.measuredAt, '--measured-at');
+    if (issues.length) throw new InputError(issues, 'the options do not fit the file');
+  }
   try {
     // correctBoard and compareCorrections refuse a board whose supply has collapsed.
     const board = normaliseBoard(spec);

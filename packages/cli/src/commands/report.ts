@@ -29,6 +29,7 @@ import {
   type ReportSection,
 } from '@trivar/core';
 import type { CliIo } from '../io.js';
+import { HAND_FIGURES_ON_INSTALLATION } from '../handFiguresWording.js';
 import { UsageError } from '../exitCodes.js';
 import { assertNotInput, writeOutputFile } from '../outputFiles.js';
 import { computeProfileStudy } from './profile.js';
@@ -101,7 +102,7 @@ function installationDocument(raw: unknown, figures: unknown, options: ReportCom
   if (options.profileData) throw new UsageError("--profile-data applies to a single board file: interval data describe one board; give that board's own file");
   // The hand method works on one board and its own loads; a board inside an installation also carries the
   // boards beyond it and the drops before it, which the hand check's effects do not separate.
-  if (figures !== null) throw new UsageError('--hand-figures checks a hand calculation on a single board file; this is an installation (boards:) — give the board as its own file');
+  if (figures !== null) throw new UsageError(`--hand-figures: ${HAND_FIGURES_ON_INSTALLATION}`);
   const spec = parseInstallation(raw);
   const { installation } = normaliseInstallation(spec);
   const result = solveInstallationModel(installation);

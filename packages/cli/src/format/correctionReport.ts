@@ -3,6 +3,7 @@ import type { BankSelection, BankStep, BeforeAfter, BranchSizing, CompensatorSiz
 import { fixed, renderTable, section } from './textTable.js';
 import { headerLines } from './solveReport.js';
 import { wrapText } from './wrapText.js';
+import { meteringPointWords, meteringSection } from './meteringSection.js';
 
 const ARRANGEMENT_WORDS: Record<string, string> = {
   'star-bank': 'star-connected capacitor bank (one capacitor per phase)',
@@ -153,7 +154,7 @@ function selectionBlock(sel: BankSelection): string {
   return out.join('\n');
 }
 
-function lineTable(v: CorrectionVerification): string {
+export function lineTable(v: Pick<CorrectionVerification, 'lines'>): string {
   return renderTable(
     [
       { header: 'line', align: 'left' },
@@ -273,7 +274,7 @@ export function renderCorrectionReport(r: CorrectionReport): string {
   const parts = [
     headerLines(v.before).slice(0, 2).join('\n'),
     wrapText(`correction: ${ARRANGEMENT_WORDS[r.arrangement] ?? r.arrangement}`, '', '  '),
-    wrapText(`target: ${target}`, '', '  '),
+    wrapText(`target: ${target}${r.target.measuredAt === undefined ? '' : `; measured at ${meteringPointWords(r.target.measuredAt)}`}`, '', '  '),
     '',
     wrapText(`${STATUS_WORDS[r.status] ?? r.status} — ${r.summary}`, '', '  '),
     ...r.reasons.map((x) => wrapText(x, '  - ', '    ')),
@@ -288,6 +289,7 @@ export function renderCorrectionReport(r: CorrectionReport): string {
     parts.push(section('Sizing (continuous, before choosing units)') + sizingTable(r.sizing.branches) + shiftLines);
   }
   if (r.selection) parts.push(section('Bank as built from units') + selectionBlock(r.selection));
+  if (v.metering) parts.push(meteringSection(v.metering, lineTable(v.metering)));
   parts.push(section('Lines, before → after (verified by re-solving the board)') + lineTable(v));
   parts.push(section('Board, before → after') + boardLines(v));
   parts.push(section('Checks') + checksBlock(v, r.selection?.steps.some((s) => s.detuningFactor > 0) ?? false));

@@ -8,6 +8,7 @@ import { treeName } from './boardTree.js';
 import { renderCorrectionReport } from './correctionReport.js';
 import { renderComparisonReport } from './comparisonReport.js';
 import { REPORT_WIDTH, wrapText } from './wrapText.js';
+import { meteringPointWords } from './meteringSection.js';
 
 const note = (text: string) => `${wrapText(text, '  (', '   ', REPORT_WIDTH - 1)})`;
 const change = (x: BeforeAfter | null, digits: number) => (x === null ? '' : `${fixed(x.before, digits)} → ${fixed(x.after, digits)}`);
@@ -15,10 +16,11 @@ const change = (x: BeforeAfter | null, digits: number) => (x === null ? '' : `${
 const cell = (x: BeforeAfter | null, digits: number) => (x === null ? '' : `${fixed(x.before, digits)}→${fixed(x.after, digits)}`);
 function placeLines(c: InstallationCorrection | InstallationComparison): string {
   const where = c.boardIndex === 0 ? `${c.board} (the main board)` : c.board;
+  const judged = c.measuredAt === undefined ? `the incomer of ${c.board}` : meteringPointWords(c.measuredAt);
   return [
     wrapText(`${c.installation}: correction equipment on ${where}`, '', '  '),
     wrapText(
-      `The target is judged at the incomer of ${c.board}. Every solve below is of the whole installation (loads at their models, every feeder's impedance), so the equipment's effect on the boards above and beside it is part of it.`,
+      `The target is judged at ${judged}. Every solve below is of the whole installation (loads at their models, every feeder's impedance), so the equipment's effect on the boards above and beside it is part of it.`,
       '',
       '',
     ),

@@ -7,6 +7,7 @@ import type { ComplexValue } from '../complex.js';
 import type { ConnectionSpec, LoadModelName, SystemKind } from './boardSchema.js';
 import type { PhaseId } from './systemTopology.js';
 import type { BoardConventions } from './conventions/boardConventions.js';
+import type { VoltageLimits } from './conventions/voltageLimits.js';
 
 export type { PhaseId } from './systemTopology.js';
 
@@ -133,6 +134,8 @@ export interface SubBoard {
   readonly fedFrom: number;
   readonly feeder: SubBoardFeeder;
   readonly loads: readonly BoardLoad[];
+  /** The board's own voltage limits (the file's `voltageLimits` on this board); absent where it shares the main board's. */
+  readonly voltageLimits?: VoltageLimits;
 }
 
 /**

@@ -15,10 +15,12 @@ export type BoardOfInstallation<I extends InstallationBaseSpec> = Omit<BoardBase
 /** The board spec a board of the installation would be on its own (supply, its feeder, its loads). */
 export function boardSpecOf<I extends InstallationBaseSpec>(spec: I, index: number): BoardOfInstallation<I> {
   const b = spec.boards[index]!;
+  // A board's own voltage limits stand in for the installation's.
+  const conventions = b.voltageLimits === undefined ? spec.conventions : { ...spec.conventions, voltageLimits: b.voltageLimits };
   return {
     name: b.name,
     supply: spec.supply,
-    ...(spec.conventions ? { conventions: spec.conventions } : {}),
+    ...(conventions ? { conventions } : {}),
     ...(b.feeder ? { feeder: b.feeder } : {}),
     loads: b.loads,
     ...(spec.studies ? { studies: spec.studies } : {}),

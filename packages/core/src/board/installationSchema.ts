@@ -8,7 +8,7 @@
  * `installationSchemaWith`; boardFile/ composes the whole file.
  */
 import * as z from 'zod';
-import { conventionsSchema } from './conventions/conventionsSchema.js';
+import { conventionsSchema, voltageLimitsSchema } from './conventions/conventionsSchema.js';
 import { feederSchema, loadSchemaWith, nameSchema, studiesSchema, supplySchema, type BoardFileExtension } from './boardSchema.js';
 
 const installationBoardSchemaWith = <L extends z.ZodRawShape>(loadFields: L) =>
@@ -16,6 +16,11 @@ const installationBoardSchemaWith = <L extends z.ZodRawShape>(loadFields: L) =>
     name: nameSchema('board name, unique in the installation'),
     fedFrom: nameSchema('the feeding board').optional().describe('the board that feeds this one; leave out for the main board, which the supply feeds'),
     feeder: feederSchema.optional().describe('the cable from the feeding board (for the main board: from the supply)'),
+    voltageLimits: voltageLimitsSchema
+      .optional()
+      .describe(
+        "this board's own voltage limits, in place of the installation's (conventions.voltageLimits) for every check of its voltages: a named preset or { underPercent, overPercent }, e.g. tighter limits on a board feeding sensitive equipment",
+      ),
     loads: z.array(loadSchemaWith(loadFields)).describe('the circuits on this board (may be empty on a board that only feeds others)'),
   });
 

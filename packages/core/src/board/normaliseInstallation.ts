@@ -4,6 +4,10 @@ import { normaliseBoard } from './normaliseBoard.js';
 import { feederModel } from './feederModel.js';
 import type { InstallationBaseSpec } from './installationSchema.js';
 import { boardSpecOf } from './installationRules.js';
+import type { VoltageLimits } from './conventions/voltageLimits.js';
+
+const sameLimits = (a: VoltageLimits, b: VoltageLimits | undefined) =>
+  b !== undefined && a.preset === b.preset && a.underPercent === b.underPercent && a.overPercent === b.overPercent;
 
 /**
  * Board numbers: 0 is the main board, then the other boards in file order.
@@ -20,11 +24,15 @@ export function normaliseInstallation(spec: InstallationBaseSpec): { installatio
   spec.boards.forEach((b, i) => {
     if (i === mainIndex) return;
     const feeder = feederModel(b.feeder, main.phases);
+    const board = normaliseBoard(boardSpecOf(spec, i));
+    const limits = board.conventions?.voltageLimits;
     subBoards[boardNumber[i]! - 1] = {
       name: b.name,
       fedFrom: numberOf.get(b.fedFrom!)!,
       feeder: { ...feeder, neutralOpen: false },
-      loads: normaliseBoard(boardSpecOf(spec, i)).loads,
+      loads: board.loads,
+      // Only where they differ from the main board's, which a sub-board otherwise shares.
+      ...(limits && !sameLimits(limits, main.conventions?.voltageLimits) ? { voltageLimits: limits } : {}),
     };
   });
   const serviceFeederDescription = feederModel(spec.boards[mainIndex]!.feeder, main.phases).description;

@@ -85,9 +85,10 @@ export function figuresOf(r: CorrectionReport): ArrangementFigures {
   const v = r.verification;
   const sel = r.selection;
   const reactorKvar = v.equipment.flatMap((g) => g.branches).reduce((s, b) => s + (b.susceptanceS < 0 ? Math.abs(kvarFromSusceptance(b.susceptanceS, b.vNominal)) : 0), 0);
-  const lowest = v.after.phases.reduce((a, p) => (p.pf !== null && p.pf < a ? p.pf : a), 1);
+  // Judged where the target is measured (the board, or its metering point).
+  const lowest = (v.metering?.after ?? v.after).phases.reduce((a, p) => (p.pf !== null && p.pf < a ? p.pf : a), 1);
   const def = r.target.definition;
-  const pf = v.powerFactor;
+  const pf = v.metering?.powerFactor ?? v.powerFactor;
   const targetPfAfter =
     def === 'per-line' ? lowest : def === 'effective' ? (pf.effective?.after ?? null) : def === 'positive-sequence' ? (pf.positiveSequence?.after ?? null) : def === 'vector' ? pf.vector.after : pf.arithmetic.after;
   return {

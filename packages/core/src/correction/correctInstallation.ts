@@ -20,10 +20,12 @@ export interface CorrectInstallationOptions {
 
 interface PlacedCorrection {
   readonly installation: string;
-  /** The board the equipment is on; the target is judged at its incomer. */
+  /** The board the equipment is on; the target is judged at its incomer unless `measuredAt` says otherwise. */
   readonly board: string;
   /** 0 for the main board, i + 1 for `installation.subBoards[i]`. */
   readonly boardIndex: number;
+  /** Where the target is measured when not at the board's incomer (`target.measuredAt`): `origin` or a board's name. */
+  readonly measuredAt?: string;
 }
 
 export interface InstallationCorrection extends PlacedCorrection {
@@ -55,6 +57,9 @@ export function installationBoardIndex(installation: Installation, name: string 
   throw new InputError([{ ...inputIssue('unknown_board', option, expected, name), message: `${option}: expected ${expected} (received ${JSON.stringify(name)})` }], 'the options do not fit the installation');
 }
 
+/** The metering point of a study, where it is not the equipment's board. */
+const measuredAt = (report: CorrectionReport) => (report.verification.metering ? { measuredAt: report.verification.metering.point } : {});
+
 function place(installation: Installation, options: CorrectInstallationOptions | undefined) {
   const boardIndex = installationBoardIndex(installation, options?.board);
   const board = boardOfInstallation(installation, boardIndex);
@@ -76,7 +81,7 @@ function place(installation: Installation, options: CorrectInstallationOptions |
 export function correctInstallation(installation: Installation, spec: unknown, options?: CorrectInstallationOptions): InstallationCorrection {
   const { board, placed } = place(installation, options);
   const report = correctBoard(board, spec);
-  return { ...placed, report, effect: installationEffect(board, report.verification.equipment) };
+  return { ...placed, ...measuredAt(report), report, effect: installationEffect(board, report.verification.equipment) };
 }
 
 /**
@@ -89,5 +94,6 @@ export function compareInstallationCorrections(installation: Installation, spec:
   const { board, placed } = place(installation, options);
   const comparison = compareCorrections(board, spec);
   const chosen = comparison.outcomes.find((o) => o.arrangement === comparison.recommended)?.report;
-  return { ...placed, comparison, effect: chosen ? installationEffect(board, chosen.verification.equipment) : null };
+  const studied = comparison.outcomes.find((o) => o.report !== null)?.report;
+  return { ...placed, ...(studied ? measuredAt(studied) : {}), comparison, effect: chosen ? installationEffect(board, chosen.verification.equipment) : null };
 }

@@ -356,6 +356,30 @@ export interface CorrectionVerification {
   readonly resonanceOrder: number | null;
   readonly lightLoad: LightLoadCheck | null;
   readonly warnings: readonly CorrectionWarning[];
+  /**
+   * Present when the target is measured away from the equipment's board (`target.measuredAt`): the
+   * readings there, from solves of the whole installation. `check`, `checkBefore`, the tolerance ends
+   * and the light-load leading check are judged there; everything else stays the equipment's board's.
+   */
+  readonly metering?: MeteringReadings;
+}
+
+/** The point a target is measured at, before and after the equipment. */
+export interface MeteringReadings {
+  /** `origin` (the supply's terminals, where the service cable starts) or the name of the board at whose incomer it is measured. */
+  readonly point: string;
+  readonly lines: readonly LineComparison[];
+  readonly powerFactor: {
+    readonly effective: BeforeAfter | null;
+    readonly vector: BeforeAfter;
+    readonly arithmetic: BeforeAfter;
+    readonly positiveSequence: BeforeAfter | null;
+  };
+  /** Active and reactive power through the point (load convention, + lagging), kW / kvar. */
+  readonly kW: BeforeAfter;
+  readonly kvar: BeforeAfter;
+  readonly before: BoardResult;
+  readonly after: BoardResult;
 }
 
 /**

@@ -7,6 +7,7 @@ import type { Board } from '../board/boardModel.js';
 import { inputIssue, type InputIssue } from '../errors.js';
 import type { CorrectionSpec } from './correctionSpec.js';
 import { CORRECTION_DEFAULTS } from './correctionDefaults.js';
+import { meteringPointIssues } from './meteringPoint.js';
 
 type Rule = (spec: CorrectionSpec, board: Board) => InputIssue[];
 
@@ -109,6 +110,13 @@ function ruleLightLoadNames(spec: CorrectionSpec, board: Board): InputIssue[] {
     .map((name) => inputIssue('unknown_load', `lightLoad.perLoad.${name}`, 'the name of a load on the board', name));
 }
 
+function ruleMeasuredAt(spec: CorrectionSpec, board: Board): InputIssue[] {
+  const point = spec.target?.measuredAt;
+  const issues = meteringPointIssues(board, point);
+  if (issues.length || point === undefined || point === board.name || spec.arrangement !== 'balancing-compensator') return issues;
+  return [inputIssue('not_applicable', 'target.measuredAt', `the compensator's own board "${board.name}": a balancing compensator balances and corrects where it is installed`, point)];
+}
+
 export const CORRECTION_RULES: readonly Rule[] = [
   ruleArrangementFitsBoard,
   ruleDefinitionFitsBoard,
@@ -119,4 +127,5 @@ export const CORRECTION_RULES: readonly Rule[] = [
   ruleCompensator,
   ruleBalance,
   ruleLightLoadNames,
+  ruleMeasuredAt,
 ];

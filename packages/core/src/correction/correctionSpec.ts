@@ -32,6 +32,13 @@ export const targetSchema = z
     maxLaggingPf: powerFactor
       .optional()
       .describe('upper bound: do not correct beyond this lagging PF (keeps every line lagging); must be >= pf'),
+    measuredAt: z
+      .string()
+      .min(1)
+      .optional()
+      .describe(
+        "where the target is measured: origin (the supply's terminals, where the service cable starts, e.g. a tariff meter) or the name of a board the equipment's board is fed through (at its incomer); default the equipment's own board",
+      ),
   })
   .describe('the power-factor target');
 

@@ -17,7 +17,7 @@ import type { Board, PhaseId } from '../board/boardModel.js';
 import type { BoardResult, PowerFactorSense } from '../analysis/boardResult.js';
 import type { Arrangement, TargetDefinition, TargetSpec } from './correctionSpec.js';
 import { CORRECTION_DEFAULTS } from './correctionDefaults.js';
-import { TARGET_STATEMENTS, targetShortfall } from './correctionWording.js';
+import { meteredStatement, TARGET_STATEMENTS, targetShortfall } from './correctionWording.js';
 
 export type BoardTargetDefinition = Exclude<TargetDefinition, 'per-line'>;
 
@@ -32,6 +32,8 @@ export interface ResolvedTarget {
   readonly leading: 'never' | 'allowed';
   readonly minLeadingPf: number | null;
   readonly maxLaggingPf: number | null;
+  /** Where the target is measured when that is not the equipment's board: `origin` or a board's name (see meteringPoint.ts). */
+  readonly measuredAt?: string;
 }
 
 /**
@@ -60,12 +62,13 @@ export function resolveTarget(spec: TargetSpec | undefined, board: Board, arrang
   const lines = definition === 'per-line' ? board.phases.map((phase) => ({ phase, minPf: spec?.perPhase?.[phase] ?? pf })) : [];
   return {
     definition,
-    statement: TARGET_STATEMENTS[definition],
+    statement: spec?.measuredAt === undefined ? TARGET_STATEMENTS[definition] : meteredStatement(TARGET_STATEMENTS[definition]),
     pf,
     lines,
     leading,
     minLeadingPf: leading === 'allowed' ? (spec?.minLeadingPf ?? pf) : null,
     maxLaggingPf: spec?.maxLaggingPf ?? null,
+    ...(spec?.measuredAt === undefined ? {} : { measuredAt: spec.measuredAt }),
   };
 }
 

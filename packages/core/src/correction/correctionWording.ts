@@ -37,6 +37,9 @@ export const TARGET_STATEMENTS: Record<TargetDefinition, string> = {
   'positive-sequence': 'fundamental positive-sequence power factor of the board, P1+/S1+ (IEEE Std 1459)',
 };
 
+/** A target's statement when it is measured away from the equipment's board (see meteringPoint.ts). */
+export const meteredStatement = (statement: string): string => statement.replace(' at the board', ' at the metering point').replace(' of the board', ' at the metering point');
+
 export const targetShortfall = {
   lineBelow: (phase: PhaseId, pf: number | null, sense: PowerFactorSense, min: number) => {
     if (pf === null) return `line ${phase} carries no current (no PF)`;

@@ -16,7 +16,8 @@ import { CORRECTION_DEFAULTS } from './correctionDefaults.js';
 import { checkTarget, lineTanBounds, resolveTarget, TARGET_SLACK } from './correctionTarget.js';
 import { addCorrectionEquipment, type EquipmentGroup } from './equipment.js';
 import { scaleBoardLoads } from './scaleBoardLoads.js';
-import type { CorrectionVerification, CorrectionWarning, LightLoadCheck, VoltageRise } from './correctionResult.js';
+import type { CorrectionVerification, CorrectionWarning, LightLoadCheck, MeteringReadings, VoltageRise } from './correctionResult.js';
+import { meteringPlace, solveMeter } from './meteringPoint.js';
 import { warningText } from './correctionWording.js';
 import { beforeAfter, branchSizings, lineComparisons } from './_internal/branchReadings.js';
 import { checkRules, definedOnly, solveOptionsSchema } from './_internal/optionSchemas.js';
@@ -101,13 +102,18 @@ export function verifyCorrection(board: Board, options: VerifyCorrectionOptions)
   const warn = (code: string, message: string, value: number | null = null, threshold: number | null = null) =>
     warnings.push({ code, message, path: null, value, threshold });
 
+  // The target is judged where it is measured: the board, or a metering point the feeders lead up to.
+  const meter = meteringPlace(board, target.measuredAt);
+  const judged = (b: Board, atBoard?: BoardResult) => (meter ? solveMeter(b, meter, solveOptions) : (atBoard ?? solve(b)));
   const before = solve(board);
   const corrected = addCorrectionEquipment(board, equipment);
   const after = solve(corrected);
-  const check = checkTarget(after, target, before);
+  const meteredBefore = judged(board, before);
+  const meteredAfter = judged(corrected, after);
+  const check = checkTarget(meteredAfter, target, meteredBefore);
   const branches = branchSizings(equipment, corrected, after);
-  const low = checkTarget(solve(addCorrectionEquipment(board, equipment, { capacitanceFactor: 1 - minus })), target, before);
-  const high = checkTarget(solve(addCorrectionEquipment(board, equipment, { capacitanceFactor: 1 + plus })), target, before);
+  const low = checkTarget(judged(addCorrectionEquipment(board, equipment, { capacitanceFactor: 1 - minus })), target, meteredBefore);
+  const high = checkTarget(judged(addCorrectionEquipment(board, equipment, { capacitanceFactor: 1 + plus })), target, meteredBefore);
   if (check.met && !low.met) warn('tolerance-low', warningText.toleranceLow(low.shortfalls));
   if (high.leadingLines.length && !check.leadingLines.length) warn('tolerance-high', warningText.toleranceHigh(high.leadingLines));
 
@@ -127,9 +133,11 @@ export function verifyCorrection(board: Board, options: VerifyCorrectionOptions)
     const lightBefore = solve(lightBoard);
     const lightCorrected = addCorrectionEquipment(lightBoard, equipment, { state: 'fixed', capacitanceFactor: 1 + plus });
     const lightAfter = solve(lightCorrected);
+    const lightJudged = meter ? judged(lightCorrected) : lightAfter;
+    const lightJudgedBefore = meter ? judged(lightBoard) : lightBefore;
     const leadingLines: PhaseId[] = [];
-    lightAfter.phases.forEach((p, k) => {
-      const b = lightBefore.phases[k]!;
+    lightJudged.phases.forEach((p, k) => {
+      const b = lightJudgedBefore.phases[k]!;
       const present = b.kW !== 0 ? b.kvar / Math.abs(b.kW) : Infinity;
       const bound = Math.min(lineTanBounds(target, k).low, present);
       if (p.kVA > 0 && p.kvar < bound * Math.abs(p.kW) - TARGET_SLACK * Math.max(p.kVA, b.kVA)) leadingLines.push(p.phase);
@@ -143,7 +151,7 @@ export function verifyCorrection(board: Board, options: VerifyCorrectionOptions)
       fraction: opts.lightLoad.fraction,
       perLoad: opts.lightLoad.perLoad ?? {},
       fixedKvar,
-      lines: lightAfter.phases.map((p) => ({ phase: p.phase, pf: p.pf, sense: p.sense })),
+      lines: lightJudged.phases.map((p) => ({ phase: p.phase, pf: p.pf, sense: p.sense })),
       leadingLines,
       ok: leadingLines.length === 0,
       voltageRise: lightRise,
@@ -151,11 +159,25 @@ export function verifyCorrection(board: Board, options: VerifyCorrectionOptions)
     };
   }
 
-  const pfPair = (get: (r: BoardResult) => number | null | undefined) => {
-    const b = get(before);
-    const a = get(after);
-    return b === null || b === undefined || a === null || a === undefined ? null : beforeAfter(b, a);
-  };
+  const pairOf = (b: number | null | undefined, a: number | null | undefined) => (b === null || b === undefined || a === null || a === undefined ? null : beforeAfter(b, a));
+  const powerFactors = (b: BoardResult, a: BoardResult) => ({
+    effective: pairOf(b.powerFactor.effective?.pf, a.powerFactor.effective?.pf),
+    vector: beforeAfter(b.powerFactor.vector.pf, a.powerFactor.vector.pf),
+    arithmetic: beforeAfter(b.powerFactor.arithmetic.pf, a.powerFactor.arithmetic.pf),
+    positiveSequence: pairOf(b.powerFactor.positiveSequence?.pf, a.powerFactor.positiveSequence?.pf),
+  });
+  const through = (r: BoardResult, key: 'kW' | 'kvar') => r.phases.reduce((sum, p) => sum + p[key], 0);
+  const metering: MeteringReadings | null = meter
+    ? {
+        point: meter.point,
+        lines: lineComparisons(meteredBefore, meteredAfter),
+        powerFactor: powerFactors(meteredBefore, meteredAfter),
+        kW: beforeAfter(through(meteredBefore, 'kW'), through(meteredAfter, 'kW')),
+        kvar: beforeAfter(through(meteredBefore, 'kvar'), through(meteredAfter, 'kvar')),
+        before: meteredBefore,
+        after: meteredAfter,
+      }
+    : null;
   const sourceKVA = (r: BoardResult) => Math.hypot(r.source.kW, r.source.kvar);
   return {
     equipment,
@@ -164,15 +186,10 @@ export function verifyCorrection(board: Board, options: VerifyCorrectionOptions)
     before,
     after,
     check,
-    checkBefore: checkTarget(before, target),
+    checkBefore: checkTarget(meteredBefore, target),
     branches,
     lines: lineComparisons(before, after),
-    powerFactor: {
-      effective: pfPair((r) => r.powerFactor.effective?.pf),
-      vector: beforeAfter(before.powerFactor.vector.pf, after.powerFactor.vector.pf),
-      arithmetic: beforeAfter(before.powerFactor.arithmetic.pf, after.powerFactor.arithmetic.pf),
-      positiveSequence: pfPair((r) => r.powerFactor.positiveSequence?.pf),
-    },
+    powerFactor: powerFactors(before, after),
     neutralCurrentA: before.neutral && after.neutral ? beforeAfter(before.neutral.current.magnitude, after.neutral.current.magnitude) : null,
     unbalance:
       before.unbalance && after.unbalance
@@ -194,5 +211,6 @@ export function verifyCorrection(board: Board, options: VerifyCorrectionOptions)
     resonanceOrder,
     lightLoad,
     warnings,
+    ...(metering ? { metering } : {}),
   };
 }

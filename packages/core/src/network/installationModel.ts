@@ -8,6 +8,7 @@
  */
 import { add, scale, ZERO, type ComplexValue } from '../complex.js';
 import type { Board, Installation } from '../board/boardModel.js';
+import { conventionsOf } from '../board/conventions/boardConventions.js';
 
 const mean = (zs: readonly ComplexValue[]) => scale(zs.reduce(add, ZERO), 1 / Math.max(zs.length, 1));
 
@@ -57,6 +58,7 @@ export function boardOfInstallation(installation: Installation, index: number): 
     lineRatingA: sb.feeder.lineRatingA,
     neutralRatingA: sb.feeder.neutralRatingA,
     loads: sb.loads,
+    ...(sb.voltageLimits ? { conventions: { ...conventionsOf(main), voltageLimits: sb.voltageLimits } } : {}),
     installation: place!,
   };
 }

@@ -7,14 +7,18 @@
 import type { Board } from '../../board/boardModel.js';
 import type { BoardResult } from '../../analysis/boardResult.js';
 import { analyseSolution, readLinePowers } from '../../analysis/analyseSolution.js';
-import { compileBoard, solveCompiledBoard, type CompiledBoard, type SolveOptions } from '../../network/solveNetwork.js';
+import { compileBoard, solveCompiledBoard, solveCompiledInstallation, type CompiledBoard, type NetworkSolution, type SolveOptions } from '../../network/solveNetwork.js';
+import type { MeteringPlace } from '../meteringPoint.js';
 import { addCorrectionEquipment, equipmentGroups, susceptanceFromKvar, type BranchSlot, type EquipmentGroup } from '../equipment.js';
 
 export interface ProbeState {
   readonly kvar: readonly number[];
   readonly board: Board;
+  /** The equipment's board. */
   readonly result: BoardResult;
-  /** Per line at the board: active power kW, reactive power kvar (+ lagging), apparent power kVA. */
+  /** Where the target is measured: the equipment's board, or the metering point (see meteringPoint.ts). */
+  readonly metered: BoardResult;
+  /** Per line where the target is measured: active power kW, reactive power kvar (+ lagging), apparent power kVA. */
   readonly lineP: readonly number[];
   readonly lineQ: readonly number[];
   readonly lineS: readonly number[];
@@ -37,7 +41,9 @@ export interface BoardProbe {
  */
 const PROBE_SOLVE: SolveOptions = { tolerance: 1e-13, maxIterations: 400 };
 
-export function createProbe(base: Board, slots: readonly BranchSlot[], name: string, solveOptions: SolveOptions = {}): BoardProbe {
+export function createProbe(board: Board, slots: readonly BranchSlot[], name: string, solveOptions: SolveOptions = {}, meter: MeteringPlace | null = null): BoardProbe {
+  // With a metering point elsewhere every trial solves the installation the point is a board of.
+  const base = meter ? meter.inFrame(board) : board;
   const solve = { ...PROBE_SOLVE, ...solveOptions };
   let count = 0;
   const groups = (kvar: readonly number[]) =>
@@ -55,15 +61,20 @@ export function createProbe(base: Board, slots: readonly BranchSlot[], name: str
     at(kvar) {
       count++;
       const board = addCorrectionEquipment(base, groups(kvar));
-      const solution = solveEquipped(board, solve);
+      const { solution, metering } = solveEquipped(board, solve, meter);
       // Most trial solves are read for line powers only: the whole analysis waits until asked for.
-      const lines = readLinePowers(solution);
+      const lines = readLinePowers(metering ?? solution);
       let result: BoardResult | undefined;
+      let metered: BoardResult | undefined;
+      const bankResult = () => (result ??= analyseSolution(solution));
       return {
         kvar: [...kvar],
         board,
         get result() {
-          return (result ??= analyseSolution(solution));
+          return bankResult();
+        },
+        get metered() {
+          return metering ? (metered ??= analyseSolution(metering)) : bankResult();
         },
         lineP: lines.map((p) => p.kW),
         lineQ: lines.map((p) => p.kvar),
@@ -80,10 +91,10 @@ export function createProbe(base: Board, slots: readonly BranchSlot[], name: str
  * changes, since a zero branch joins nothing (an all-zero floating star point is a dead node).
  * Every candidate's solve is the one `solveNetwork` would do: same network, same start.
  */
-function equippedSolver(base: Board): (board: Board, options: SolveOptions) => ReturnType<typeof solveCompiledBoard> {
+function equippedSolver(base: Board): (board: Board, options: SolveOptions, meter: MeteringPlace | null) => { solution: NetworkSolution; metering: NetworkSolution | null } {
   const compiled = new Map<string, CompiledBoard>();
   const baseLoads = base.loads.length;
-  return (board, options) => {
+  return (board, options, meter) => {
     const added = board.loads.slice(baseLoads).flatMap((l) => l.branches);
     const zeros = added.map((b) => (b.sNominal.re === 0 && b.sNominal.im === 0 ? '0' : '1')).join('');
     let c = compiled.get(zeros);
@@ -100,7 +111,9 @@ function equippedSolver(base: Board): (board: Board, options: SolveOptions) => R
         k++;
       }
     }
-    return solveCompiledBoard({ ...c, board }, options);
+    if (!meter) return { solution: solveCompiledBoard({ ...c, board }, options), metering: null };
+    const boards = solveCompiledInstallation(c.installation, options).boards;
+    return { solution: { ...boards[c.boardIndex]!, board }, metering: boards[meter.meterIndex]! };
   };
 }
 

@@ -38,7 +38,7 @@ export function sizeAlongDirection(
   const at = (t: number) => probe.at(unit.map((u) => u * t));
   const largest = Math.max(...zero.lineS);
   const weights = zero.lineS.map((s) => Math.max(s, 1e-6 * largest));
-  const pfOf = (s: ProbeState) => boardPowerFactor(s.result, definition) ?? -Infinity;
+  const pfOf = (s: ProbeState) => boardPowerFactor(s.metered, definition) ?? -Infinity;
   /** ≥ 0 while every line is inside its lower bound and the board is not past the upper PF. */
   const limitMargin = (s: ProbeState) => {
     let m = Infinity;

@@ -15,6 +15,7 @@ import { sizeForLineTargets, type LoopSettings } from './sizeForLineTargets.js';
 import { sizeAlongDirection } from './sizeAlongDirection.js';
 import { equalShareWindow, type EqualShareWindow } from './equalShareWindow.js';
 import { branchSizings, lineComparisons } from './branchReadings.js';
+import { meteringPlace } from '../meteringPoint.js';
 
 export interface ResolvedBankOptions {
   readonly target: ResolvedTarget;
@@ -28,13 +29,15 @@ export function sizeBank(board: Board, arrangement: BankSizing['arrangement'], s
   const name = arrangement === 'star-bank' ? 'star bank' : 'delta bank';
   const floating = slots.some((s) => s.to === 'star');
   // The loops run on `probe`; a floating star is sized as its equivalent delta (see floatingStar.ts).
-  const probe = createProbe(board, floating ? deltaSlots(board) : slots, name, options.solve);
-  const built = floating ? createProbe(board, slots, name, options.solve) : probe;
+  // Where the target is measured: the board itself, or a point the feeders lead up to (meteringPoint.ts).
+  const meter = meteringPlace(board, target.measuredAt);
+  const probe = createProbe(board, floating ? deltaSlots(board) : slots, name, options.solve, meter);
+  const built = floating ? createProbe(board, slots, name, options.solve, meter) : probe;
   const toBuilt = (kvar: readonly number[]) => (floating ? deltaKvarToStarKvar(board, kvar) : [...kvar]);
   const loop = floating ? { ...options.loop, minShare: MIN_DELTA_SHARE } : options.loop;
   const zeros = slots.map(() => 0);
   const start = probe.at(zeros);
-  const checkBefore = checkTarget(start.result, target);
+  const checkBefore = checkTarget(start.metered, target);
   const limitBands = lineBands(target, start, 'limit');
 
   const perLineTarget = target.definition === 'per-line';
@@ -49,7 +52,7 @@ export function sizeBank(board: Board, arrangement: BankSizing['arrangement'], s
     const state = floating ? built.at(toBuilt(sized.kvar)) : sized;
     const limitKvar = sizedLimit && toBuilt(sizedLimit);
     const equipment = built.groups(state.kvar);
-    const check = checkTarget(state.result, target, start.result);
+    const check = checkTarget(state.metered, target, start.metered);
     const reasons = forced?.reasons ?? [];
     const status = forced?.status ?? (check.met ? 'meets-target' : 'infeasible');
     if (!forced && !check.met) {

@@ -1,0 +1,27 @@
+/** Where a correction target is measured, when that is not the equipment's board: its readings before → after. */
+import type { BeforeAfter, MeteringReadings } from '@trivar/core';
+import { fixed, section } from './textTable.js';
+import { wrapText } from './wrapText.js';
+
+/** The metering point in words: the origin, or a board's incomer. */
+export const meteringPointWords = (point: string): string =>
+  point === 'origin' ? "the origin of the installation (the supply's terminals, where the service cable starts)" : `the incomer of ${point}`;
+
+const arrow = (x: BeforeAfter, digits: number, unit = '') => `${fixed(x.before, digits)}${unit} → ${fixed(x.after, digits)}${unit}`;
+
+/** `lines`: the per-line table, rendered as the board's own lines are. */
+export function meteringSection(m: MeteringReadings, lines: string): string {
+  const pf = m.powerFactor;
+  const rows = [
+    ...(pf.effective ? [`PF effective (IEEE 1459)     ${arrow(pf.effective, 3)}`] : []),
+    `PF vector                    ${arrow(pf.vector, 3)}`,
+    ...(pf.positiveSequence ? [`PF positive sequence         ${arrow(pf.positiveSequence, 3)}`] : []),
+    `through it                   ${arrow(m.kW, 2, ' kW')}, ${arrow(m.kvar, 2, ' kvar')} (+ lagging)`,
+  ];
+  return (
+    section(`Where the target is measured, before → after (the whole installation re-solved)`) +
+    `${wrapText(`at ${meteringPointWords(m.point)}: the feeders between it and the equipment carry reactive power of their own and change the voltage, and both are in these figures`, '  ', '  ')}\n` +
+    `${lines}\n` +
+    rows.map((r) => `  ${r}`).join('\n')
+  );
+}
