@@ -3,7 +3,7 @@
  * InputError naming the field (code and path exact, wording loosely).
  */
 import { describe, expect, it } from 'vitest';
-import { InputError, solveBoard, solveInstallation, validateBoard, validateInstallation } from '@trivar/core';
+import { InputError, readBoardText, solveBoard, solveInstallation, validateBoard, validateInstallation } from '@trivar/core';
 
 type Mutable = Record<string, any>;
 const installation = () => ({
@@ -46,6 +46,32 @@ const installationCases: [string, unknown, string, string, RegExp][] = [
   ['a bad load on a sub-board', editInstallation((b) => (b.boards[1].loads[0].pf = 1.5)), 'out_of_range', 'boards[1].loads[0].pf', /1/],
   ['a missing phase in a per-phase feeder', editInstallation((b) => (b.boards[1].feeder.line = { A: { mm2: 25 }, B: { mm2: 25 } })), 'missing', 'boards[1].feeder.line.C', /every phase/],
   ['both boards and loads', editInstallation((b) => (b.loads = [])), 'unknown_key', 'loads', /documented keys/],
+  // A feeder missing some conductors would give them no impedance: a silently low drop.
+  ['a feeder with a length and no conductor', editInstallation((b) => (b.boards[1].feeder = { lengthM: 30 })), 'missing', 'boards[1].feeder.line', /r: 0, x: 0/],
+  ['a feeder with a neutral and no line conductor', editInstallation((b) => delete b.boards[1].feeder.line), 'missing', 'boards[1].feeder.line', /line conductors/],
+  ['line conductors without the neutral a load returns through', editInstallation((b) => delete b.boards[1].feeder.neutral), 'missing', 'boards[1].feeder.neutral', /"flat 1" on Floor 1/],
+  ['a service feeder without the neutral a sub-board load returns through', editInstallation((b) => (b.boards[0].feeder = { lengthM: 20, line: { mm2: 95 } })), 'missing', 'boards[0].feeder.neutral', /"flat 1" on Floor 1/],
+  // Names head table rows and drawing boxes.
+  ['a board name of 101 characters', editInstallation((b) => (b.boards[2].name = 'F'.repeat(101))), 'out_of_range', 'boards[2].name', /at most 100 characters/],
+  ['a blank board name', editInstallation((b) => (b.boards[2].name = '   ')), 'invalid_format', 'boards[2].name', /visible character/],
+  ['a circuit name of 101 characters', editInstallation((b) => (b.boards[1].loads[0].name = 'f'.repeat(101))), 'out_of_range', 'boards[1].loads[0].name', /at most 100 characters/],
+  ['fedFrom differing only in spaces and case', editInstallation((b) => (b.boards[2].fedFrom = 'floor  1 ')), 'unknown_board', 'boards[2].fedFrom', /"Floor 1" differs only in spaces or letter case/],
+  // A conductor written flat or per phase: the issue names the field and its own fault, not "unknown key".
+  ['a size written as text', editInstallation((b) => (b.boards[1].feeder.line = { mm2: '25' })), 'invalid_type', 'boards[1].feeder.line.mm2', /a number/],
+  ['a rating written as text beside a good size', editInstallation((b) => (b.boards[1].feeder.line = { mm2: 25, ratingA: '100 A' })), 'invalid_type', 'boards[1].feeder.line.ratingA', /a number/],
+  ['a per-phase size written as text', editInstallation((b) => (b.boards[1].feeder.line = { A: { mm2: '25' }, B: { mm2: 25 }, C: { mm2: 25 } })), 'invalid_type', 'boards[1].feeder.line.A.mm2', /a number/],
+  ['an unknown key beside a size', editInstallation((b) => (b.boards[1].feeder.line = { mm2: 25, colour: 'brown' })), 'unknown_key', 'boards[1].feeder.line.colour', /documented keys/],
+  ['a line conductor that is a number', editInstallation((b) => (b.boards[1].feeder.line = 25)), 'invalid_type', 'boards[1].feeder.line', /an object/],
+  ['an AWG size as a long text', editInstallation((b) => (b.boards[1].feeder.line = { awg: '4/0 AWG copper THHN' })), 'out_of_range', 'boards[1].feeder.line.awg', /text of at most 12 characters/],
+  [
+    'a YAML merge key into a board',
+    readBoardText(
+      'supply: { system: three-phase-4wire, voltage: { lineToLine: 400 }, frequencyHz: 50 }\nboards:\n  - { name: Main, loads: [] }\n  - &floor { name: Floor 1, fedFrom: Main, loads: [] }\n  - { <<: *floor, name: Floor 2 }\n',
+    ),
+    'unknown_key',
+    'boards[2].<<',
+    /merge key.*YAML 1\.2/,
+  ],
 ];
 
 const supplyCases: [string, unknown, string, string][] = [
@@ -68,10 +94,18 @@ const supplyCases: [string, unknown, string, string][] = [
     b.supply.bank = { A: { r: 0.01, x: 0.01 }, B: { r: 0.01, x: 0.01 }, C: { r: 0.01, x: 0.01 } };
   }), 'conflict', 'supply'],
   ['per-phase impedance with a phase missing', editBoard((b) => (b.supply.impedance = { A: { r: 0.01, x: 0.02 }, C: { r: 0.01, x: 0.02 } })), 'missing', 'supply.impedance.B'],
+  ['a source resistance written as text', editBoard((b) => (b.supply.impedance = { r: '0.01', x: 0.02 })), 'invalid_type', 'supply.impedance.r'],
   ['a negative per-phase resistance', editBoard((b) => (b.supply.impedance = { A: { r: -0.01, x: 0.02 }, B: { r: 0.01, x: 0.02 }, C: { r: 0.01, x: 0.02 } })), 'out_of_range', 'supply.impedance.A.r'],
 ];
 
 describe('bad installation input', () => {
+  it('a line-only (three-core) feeder stays valid where no load returns through a neutral', () => {
+    const input = editInstallation((b) => {
+      delete b.boards[2].feeder.neutral;
+      b.boards[2].loads = [{ name: 'pump', connection: 'ABC-delta', kW: 4, pf: 0.85 }];
+    });
+    expect(validateInstallation(input).ok).toBe(true);
+  });
   it.each(installationCases)('%s', (_, input, code, path, wording) => {
     const result = validateInstallation(input);
     expect(result.ok).toBe(false);

@@ -47,7 +47,7 @@ describe('installation report', () => {
     expect(doc.sections.map((s) => s.id)).toEqual(['installation', 'feeders', 'totals', ...boardIds, 'assumptions', 'standards', 'cautions']);
     expect(doc.sections.filter((s) => s.id.startsWith('board-')).map((s) => s.title)).toEqual(result.boards.map((b) => `Board: ${b.name}`));
     expect(doc.title).toBe('Maple Court riser');
-    expect(doc.subtitle).toBe('Installation report · 6 boards · 400/231 V · 50 Hz');
+    expect(doc.subtitle).toBe('Installation report · 6 boards · 230.9/400 V · 50 Hz');
   });
 
   it('describes the source, the boards and the feeder tree, with the one-line drawing', () => {

@@ -37,5 +37,8 @@ export async function runSolve(file: string, options: SolveCommandOptions, io: C
   if (unknown.length) throw unknownBoardError(unknown, names);
   const detailed = options.allBoards ? names : names.filter((n) => options.board?.includes(n));
   writeResult(io, result, options.json, (r) => renderInstallationReport(r, { detailed }));
+  // As for a board file: the figures are printed, then a collapse anywhere is the exit status.
+  const findings = result.boards.flatMap((b) => (b.result.operatingPoint.collapsed ? b.result.operatingPoint.findings.map((f) => `${b.name}: ${f}`) : []));
+  if (findings.length) throw collapseError({ operatingPoint: { findings } });
   return result;
 }

@@ -4,6 +4,7 @@
  */
 import type { BeforeAfter, InstallationComparison, InstallationCorrection, InstallationEffect } from '@trivar/core';
 import { fixed, renderTableWithin, section } from './textTable.js';
+import { treeName } from './boardTree.js';
 import { renderCorrectionReport } from './correctionReport.js';
 import { renderComparisonReport } from './comparisonReport.js';
 import { REPORT_WIDTH, wrapText } from './wrapText.js';
@@ -13,8 +14,6 @@ const note = (text: string) => `${wrapText(text, '  (', '   ', REPORT_WIDTH - 1)
 const change = (x: BeforeAfter | null, digits: number) => (x === null ? '' : `${fixed(x.before, digits)} → ${fixed(x.after, digits)}`);
 /** The same without spaces, for table cells (keeps the tables inside 100 columns). */
 const cell = (x: BeforeAfter | null, digits: number) => (x === null ? '' : `${fixed(x.before, digits)}→${fixed(x.after, digits)}`);
-const treeName = (name: string, depth: number) => `${'  '.repeat(depth - 1)}${depth > 1 ? '└ ' : ''}${name}`;
-
 function placeLines(c: InstallationCorrection | InstallationComparison): string {
   const where = c.boardIndex === 0 ? `${c.board} (the main board)` : c.board;
   const judged = c.measuredAt === undefined ? `the incomer of ${c.board}` : meteringPointWords(c.measuredAt);

@@ -1,6 +1,7 @@
 /** InstallationResult → the text report of `trivar solve` on an installation: a summary per board and per feeder. */
 import { bandWords, labelIn, type InstallationResult } from '@trivar/core';
 import { fixed, renderTable, section } from './textTable.js';
+import { treeName } from './boardTree.js';
 import { renderSolveReport } from './solveReport.js';
 import { REPORT_WIDTH, wrapText } from './wrapText.js';
 
@@ -12,9 +13,6 @@ const SYSTEM_WORDS: Record<string, string> = {
   'split-phase': 'split-phase 3-wire',
   'single-phase': 'single-phase 2-wire',
 };
-
-/** Board names indented by their depth in the tree, so the table reads as the riser does. */
-const treeName = (name: string, depth: number) => `${'  '.repeat(depth - 1)}${depth > 1 ? '└ ' : ''}${name}`;
 
 const VERDICT_CELL = { within: 'ok', under: 'UNDER', over: 'OVER', 'under-and-over': 'UNDER+OVER' } as const;
 
@@ -89,6 +87,42 @@ function cableList(r: InstallationResult): string {
   return lines.length ? `\n${lines.join('\n')}` : '';
 }
 
+/** Boards whose supply collapsed: stated before any figure, as the board report does. */
+function collapseBlock(r: InstallationResult): string[] {
+  const collapsed = r.boards.filter((b) => b.result.operatingPoint.collapsed);
+  if (!collapsed.length) return [];
+  const findings = collapsed.flatMap((b) => b.result.operatingPoint.findings.map((f) => wrapText(`${b.name}: ${f}`, '  ! ')));
+  return [`\nSUPPLY COLLAPSE — the supply cannot carry these loads; the figures below are not a working installation:\n${findings.join('\n')}`];
+}
+
+/** The broken-neutral study of every board, one row each (the full study is in each board's report). */
+function openNeutralSummary(r: InstallationResult): string | null {
+  const studied = r.boards.filter((b) => b.result.openNeutral);
+  if (!studied.length) return null;
+  const rows = studied.map((b) => {
+    const s = b.result.openNeutral!;
+    if (!s.applicable) return [b.name, '', '', '', 'not applicable'];
+    return [
+      b.name,
+      s.barVoltage ? fixed(s.barVoltage.magnitude, 1) : '',
+      s.highestPercent === null ? '' : fixed(s.highestPercent, 1),
+      s.lowestPercent === null ? '' : fixed(s.lowestPercent, 1),
+      s.reachedFromIntact ? 'reached' : 'worst found',
+    ];
+  });
+  const table = renderTable(
+    [{ header: 'neutral broken at', align: 'left' }, { header: 'bar V' }, { header: 'highest %nom' }, { header: 'lowest %nom' }, { header: 'state', align: 'left' }],
+    rows,
+  );
+  const cautions = [...new Set(studied.flatMap((b) => b.result.openNeutral!.cautions))];
+  return (
+    section("If a board's neutral broke") +
+    table +
+    `\n${note("each board's own feeder neutral open, the rest intact; %nom: what that board's line-to-neutral loads see (the boards it feeds float with it); full study: --board \"<name>\".")}` +
+    (cautions.length ? `\n${cautions.map((c) => wrapText(c, '  ! ')).join('\n')}` : '')
+  );
+}
+
 export interface InstallationReportOptions {
   /** Boards whose full report follows the summary. */
   readonly detailed: readonly string[];
@@ -96,12 +130,14 @@ export interface InstallationReportOptions {
 
 export function renderInstallationReport(r: InstallationResult, options: InstallationReportOptions): string {
   const first = r.boards[0]!.result.board;
-  const volts = first.nominalLineToLineV ? `${fixed(first.nominalLineToLineV, 0)}/${fixed(first.nominalLineToNeutralV, 0)} V` : `${fixed(first.nominalLineToNeutralV, 0)} V`;
+  // The trade's notation, the region's way round (230/400 V, 208Y/120 V, 120/240 V).
+  const volts = r.boards[0]!.result.conventions.voltageNotation;
   const t = r.totals;
   const warnings = r.boards.flatMap((b) => b.result.warnings.map((w) => wrapText(`${b.name}: ${w.message}`, '  ! ')));
   const cautions = [...new Set(r.boards.flatMap((b) => b.result.cautions))];
   const parts = [
-    [r.installation.name, `${SYSTEM_WORDS[r.installation.system] ?? r.installation.system} · ${volts} · ${first.frequencyHz} Hz · ${r.installation.boardCount} boards`].join('\n'),
+    [r.installation.name, `${SYSTEM_WORDS[r.installation.system] ?? r.installation.system} · ${volts} · ${first.frequencyHz} Hz · ${r.installation.boardCount} board${r.installation.boardCount === 1 ? '' : 's'}`].join('\n'),
+    ...collapseBlock(r),
     section('Boards') + boardTable(r) + `\n${note("own: this board's circuits; fed: what its feeder delivers, boards beyond it included.")}`,
     section('Feeders') +
       feederTable(r) +
@@ -117,6 +153,8 @@ export function renderInstallationReport(r: InstallationResult, options: Install
       ].join('\n'),
     section('Warnings') + (warnings.length ? warnings.join('\n') : '  none'),
   ];
+  const openNeutral = options.detailed.length === 0 ? openNeutralSummary(r) : null;
+  if (openNeutral) parts.push(openNeutral);
   for (const name of options.detailed) {
     const board = r.boards.find((b) => b.name === name)!;
     parts.push(section(`━━ ${name}${board.fedFrom ? ` (fed from ${board.fedFrom})` : ''} ━━`) + renderSolveReport(board.result).trimEnd());

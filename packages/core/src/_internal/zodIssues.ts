@@ -6,6 +6,10 @@
 import type { core, ZodType } from 'zod';
 import { formatPath, InputError, inputIssue, type InputIssue } from '../errors.js';
 
+const DOCUMENTED_KEYS = 'only the documented keys (see the JSON Schema: `trivar schema`, or `trivar schema --installation`)';
+/** YAML 1.2 has no merge keys; read as 1.1 they would also change numbers (see readBoardText.ts). */
+const MERGE_KEY = 'no YAML merge key: files are read as YAML 1.2, where "<<" is an ordinary key; write the fields out, or reuse a whole value with an alias (*name)';
+
 function expectedFor(issue: core.$ZodIssue): string {
   switch (issue.code) {
     case 'invalid_type':
@@ -20,9 +24,11 @@ function expectedFor(issue: core.$ZodIssue): string {
       return `a number ${issue.inclusive ? '>=' : '>'} ${String(issue.minimum)}`;
     case 'too_big':
       if (issue.message.startsWith('a number ')) return issue.message;
+      if (issue.origin === 'string') return `a text of at most ${String(issue.maximum)} characters`;
+      if (issue.origin === 'array') return `at most ${String(issue.maximum)} item(s)`;
       return `a number ${issue.inclusive ? '<=' : '<'} ${String(issue.maximum)}`;
     case 'unrecognized_keys':
-      return 'only the documented keys (see the board JSON Schema)';
+      return DOCUMENTED_KEYS;
     case 'invalid_union':
       // Each alternative says what it takes: "one of "a", "b" or a list".
       return issue.errors.map((alternative) => (alternative[0] ? expectedFor(alternative[0]) : '')).filter(Boolean).join(' or ') || issue.message;
@@ -56,7 +62,7 @@ export function inputIssuesFromZod(issues: readonly core.$ZodIssue[], root: unkn
       if (refused) return inputIssuesFromZod(refused, valueAt(root, issue.path), path);
     }
     if (issue.code === 'unrecognized_keys')
-      return issue.keys.map((key) => inputIssue('unknown_key', formatPath([...path, key]), 'only the documented keys (see the board JSON Schema)', key));
+      return issue.keys.map((key) => inputIssue('unknown_key', formatPath([...path, key]), key === '<<' ? MERGE_KEY : DOCUMENTED_KEYS, key));
     // A refinement may report a value of its own in params.received (a spectrum's total, not the list).
     const received = issue.code === 'custom' && issue.params?.received !== undefined ? (issue.params.received as unknown) : valueAt(root, issue.path);
     // A refinement names its own code in params.code (`duplicate`, `not_integer`...).

@@ -95,6 +95,15 @@ export function boardWarnings(input: {
           threshold: limitOf(side),
         });
     }
+  // A circuit drawing more than its own breaker's rating: the schedule would show the two side by side.
+  for (const load of loads)
+    if (load.breakerA !== null && load.energised && load.currentA > load.breakerA)
+      out.push({
+        code: 'circuit-over-breaker',
+        message: `circuit "${load.name}" draws ${fmt(load.currentA)} A, above its ${+load.breakerA.toFixed(1)} A breaker: sustained, it would trip the breaker; check the load and the rating in the file`,
+        value: load.currentA,
+        threshold: load.breakerA,
+      });
   for (const b of input.belowThreshold)
     out.push({
       code: 'load-below-model-threshold',

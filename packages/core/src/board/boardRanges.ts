@@ -55,6 +55,8 @@ export const STAR_POINTS = ['neutral', 'floating'] as const;
 export const PF_SENSES = ['lagging', 'leading'] as const;
 export const BREAKER_POLES = [1, 2, 3] as const;
 /** Longest voltage notation ("208Y/120") and AWG size ("4/0") read, in characters. */
+/** Longest board or circuit name: a name heads a table row and a box in the drawings. */
+export const NAME_MAX_CHARACTERS = 100;
 export const NOTATION_MAX_CHARS = 40;
 export const AWG_MAX_CHARS = 12;
 /** Conductors in parallel on one line or neutral. */

@@ -22,6 +22,7 @@ import {
   CONNECTIONS,
   FREQUENCIES_HZ,
   LOAD_MODELS,
+  NAME_MAX_CHARACTERS,
   NOTATION_MAX_CHARS,
   PARALLEL_CONDUCTORS,
   PF_SENSES,
@@ -32,7 +33,7 @@ import {
   type PhysicalRange,
 } from './boardRanges.js';
 
-export { CONNECTIONS, LOAD_MODELS, PHYSICAL_RANGES, SYSTEMS };
+export { CONNECTIONS, LOAD_MODELS, NAME_MAX_CHARACTERS, PHYSICAL_RANGES, SYSTEMS };
 
 const nonNegative = z.number().nonnegative();
 
@@ -47,6 +48,16 @@ function within(range: PhysicalRange): z.ZodNumber {
   return (above ? z.number().gt(min, { message: text }) : z.number().min(min, { message: text })).max(max, { message: text });
 }
 
+/** A board or circuit name: some visible text, short enough to head a table row. */
+export const nameSchema = (what: string) =>
+  z
+    .string()
+    .min(1)
+    .max(NAME_MAX_CHARACTERS)
+    // An empty name is min(1)'s to report; this catches names of spaces only.
+    .regex(/^$|\S/, { message: 'a name with at least one visible character' })
+    .describe(`${what} (at most ${NAME_MAX_CHARACTERS} characters)`);
+
 const impedanceOf = (r: PhysicalRange, x: PhysicalRange) =>
   z
     .strictObject({
@@ -54,7 +65,7 @@ const impedanceOf = (r: PhysicalRange, x: PhysicalRange) =>
       x: within(x).describe('reactance, ohm (positive inductive, negative capacitive)'),
     })
     .describe('series impedance R + jX in ohm');
-const impedanceSchema = impedanceOf(PHYSICAL_RANGES.supplyOhms, PHYSICAL_RANGES.supplyReactanceOhms);
+export const impedanceSchema = impedanceOf(PHYSICAL_RANGES.supplyOhms, PHYSICAL_RANGES.supplyReactanceOhms);
 const loadImpedanceSchema = impedanceOf(PHYSICAL_RANGES.loadOhms, PHYSICAL_RANGES.loadReactanceOhms);
 
 const phaseEmfSchema = z.strictObject({
@@ -70,7 +81,7 @@ const transformerSchema = z
   })
   .describe('supply transformer; its impedance is referred to the board voltage');
 
-const conductorSchema = z
+export const conductorSchema = z
   .strictObject({
     r: within(PHYSICAL_RANGES.supplyOhms).optional().describe('resistance, ohm'),
     x: within(PHYSICAL_RANGES.supplyOhms).optional().describe('reactance, ohm'),
@@ -88,11 +99,11 @@ const conductorSchema = z
   })
   .describe('a conductor: r and x directly; or a length with rOhmPerKm, or with a size (mm2, awg or kcmil)');
 
-const perPhaseConductorSchema = z
+export const perPhaseConductorSchema = z
   .strictObject({ A: conductorSchema.optional(), B: conductorSchema.optional(), C: conductorSchema.optional() })
   .describe('a different conductor for each phase');
 
-const perPhaseImpedanceSchema = z
+export const perPhaseImpedanceSchema = z
   .strictObject({ A: impedanceSchema.optional(), B: impedanceSchema.optional(), C: impedanceSchema.optional() })
   .describe('a different source impedance for each phase, ohm');
 
@@ -160,7 +171,7 @@ export const feederSchema = z
   .describe('the cable or busway that feeds the board');
 
 export const loadSchema = z.strictObject({
-  name: z.string().min(1).describe('circuit name'),
+  name: nameSchema('circuit name'),
   circuit: z.string().min(1).optional().describe('circuit number or way on the board, for the panel schedule (default: position in the list)'),
   breakerA: within(PHYSICAL_RANGES.ratingA).optional().describe('rated current of the circuit breaker or fuse, A (shown in the panel schedule)'),
   poles: z

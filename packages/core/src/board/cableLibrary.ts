@@ -2,13 +2,13 @@
  * Conductor resistances by size, and their temperature correction.
  *
  * Metric sizes: IEC 60228, class 2 (stranded) conductors, maximum DC resistance at
- * 20 °C, Ω/km. Checked against two published reproductions of the standard's
- * Table 2 (mycableengineering.com "IEC 60228 DC resistance" and a cable maker's
- * conductor specification page); test/reference/cableLibrary.test.ts lists the sample.
+ * 20 °C, Ω/km, plain copper and aluminium. Every value checked against three published
+ * reproductions of the standard's Table 2 (test/reference/cableLibrary.test.ts names them).
  *
  * AWG/kcmil sizes: NEC Chapter 9 Table 8, uncoated stranded conductors, DC
- * resistance at 75 °C, Ω/kft. Checked against a published annotated reproduction
- * of Table 8 (voltdropcalc.com "NEC Chapter 9, Table 8 — Annotated").
+ * resistance at 75 °C, Ω/kft. Table 8 lists 14–8 AWG twice, solid and stranded;
+ * these are the stranded rows (feeder conductors of 8 AWG and up are stranded,
+ * NEC 310.3(C)). Every value checked against two published reproductions of Table 8.
  *
  * Temperature: R_T = R_ref·(1 + α_ref·(T − T_ref)). α at 20 °C is 0.00393 /K for
  * copper and 0.00403 /K for aluminium (IEC 60228 Annex B gives the same
@@ -28,24 +28,27 @@ const IEC_60228_CLASS_2: Record<ConductorMaterial, Readonly<Record<string, numbe
   copper: {
     '1.5': 12.1, '2.5': 7.41, '4': 4.61, '6': 3.08, '10': 1.83, '16': 1.15, '25': 0.727, '35': 0.524, '50': 0.387,
     '70': 0.268, '95': 0.193, '120': 0.153, '150': 0.124, '185': 0.0991, '240': 0.0754, '300': 0.0601, '400': 0.047,
+    '500': 0.0366, '630': 0.0283,
   },
   aluminium: {
     '10': 3.08, '16': 1.91, '25': 1.2, '35': 0.868, '50': 0.641, '70': 0.443, '95': 0.32, '120': 0.253, '150': 0.206,
-    '185': 0.164, '240': 0.125, '300': 0.1, '400': 0.0778,
+    '185': 0.164, '240': 0.125, '300': 0.1, '400': 0.0778, '500': 0.0605, '630': 0.0469, '800': 0.0367, '1000': 0.0291,
   },
 };
 
-/** NEC Chapter 9 Table 8, uncoated stranded, Ω/kft at 75 °C. Keys: AWG as written ("4/0"), kcmil as "250 kcmil". */
+/** NEC Chapter 9 Table 8, uncoated stranded (the stranded rows of 14–8 AWG), Ω/kft at 75 °C. Keys: AWG as written ("4/0"), kcmil as "250 kcmil". */
 const NEC_TABLE_8: Record<ConductorMaterial, Readonly<Record<string, number>>> = {
   copper: {
-    '14': 3.07, '12': 1.93, '10': 1.21, '8': 0.764, '6': 0.491, '4': 0.308, '3': 0.245, '2': 0.194, '1': 0.154,
+    '14': 3.14, '12': 1.98, '10': 1.24, '8': 0.778, '6': 0.491, '4': 0.308, '3': 0.245, '2': 0.194, '1': 0.154,
     '1/0': 0.122, '2/0': 0.0967, '3/0': 0.0766, '4/0': 0.0608,
     '250 kcmil': 0.0515, '300 kcmil': 0.0429, '350 kcmil': 0.0367, '400 kcmil': 0.0321, '500 kcmil': 0.0258,
+    '600 kcmil': 0.0214, '700 kcmil': 0.0184, '750 kcmil': 0.0171, '800 kcmil': 0.0161, '900 kcmil': 0.0143, '1000 kcmil': 0.0129,
   },
   aluminium: {
-    '12': 3.18, '10': 2.0, '8': 1.26, '6': 0.808, '4': 0.508, '3': 0.403, '2': 0.319, '1': 0.253,
+    '12': 3.25, '10': 2.04, '8': 1.28, '6': 0.808, '4': 0.508, '3': 0.403, '2': 0.319, '1': 0.253,
     '1/0': 0.201, '2/0': 0.159, '3/0': 0.126, '4/0': 0.1,
     '250 kcmil': 0.0847, '300 kcmil': 0.0707, '350 kcmil': 0.0605, '400 kcmil': 0.0529, '500 kcmil': 0.0424,
+    '600 kcmil': 0.0353, '700 kcmil': 0.0303, '750 kcmil': 0.0282, '800 kcmil': 0.0265, '900 kcmil': 0.0235, '1000 kcmil': 0.0212,
   },
 };
 

@@ -7,6 +7,7 @@ import { inputIssue, type InputIssue } from '../errors.js';
 import type { BoardBaseSpec } from './boardSchema.js';
 import type { BoardRule } from './boardRules.js';
 import type { InstallationBaseSpec } from './installationSchema.js';
+import { systemHasNeutral } from './systemTopology.js';
 
 /** One board of an installation on its own, its loads as the installation file types them (with any study fields). */
 export type BoardOfInstallation<I extends InstallationBaseSpec> = Omit<BoardBaseSpec, 'loads'> & { loads: I['boards'][number]['loads'] };
@@ -50,7 +51,10 @@ function ruleTree(spec: InstallationBaseSpec): InputIssue[] {
   spec.boards.forEach((b, i) => {
     if (b.fedFrom === undefined) return;
     if (!index.has(b.fedFrom)) {
-      issues.push(inputIssue('unknown_board', `boards[${i}].fedFrom`, `the name of a board in this installation: ${names.map((n) => JSON.stringify(n)).join(', ')}`, b.fedFrom));
+      const fold = (n: string) => n.trim().replace(/\s+/g, ' ').toLowerCase();
+      const near = names.find((n) => fold(n) === fold(b.fedFrom!));
+      const hint = near === undefined ? '' : ` (${JSON.stringify(near)} differs only in spaces or letter case)`;
+      issues.push(inputIssue('unknown_board', `boards[${i}].fedFrom`, `the name of a board in this installation, exactly as written: ${names.map((n) => JSON.stringify(n)).join(', ')}${hint}`, b.fedFrom));
       return;
     }
     // Walk towards the supply; coming back to this board means a loop.
@@ -65,6 +69,59 @@ function ruleTree(spec: InstallationBaseSpec): InputIssue[] {
       const next = spec.boards[index.get(at)!]?.fedFrom;
       if (next === undefined || !index.has(next)) return;
       at = next;
+    }
+  });
+  return issues;
+}
+
+type BoardSpec = InstallationBaseSpec['boards'][number];
+
+/** A load that returns current through the neutral (line-to-neutral, or a star tied to the neutral). */
+const usesNeutral = (load: BoardSpec['loads'][number]) => load.connection.endsWith('-N') || (load.connection === 'ABC-star' && load.starPoint !== 'floating');
+
+/**
+ * A feeder written with some conductors but not others would leave the missing ones with no
+ * impedance: a silently low drop. A length or neutral without a line conductor is refused; so is
+ * a line conductor without a neutral where loads on the board or beyond it return through it
+ * (a three-core feeder to a board of three-phase loads stays valid).
+ */
+function ruleFeederConductors(spec: InstallationBaseSpec): InputIssue[] {
+  const issues: InputIssue[] = [];
+  const byName = new Map(spec.boards.map((b) => [b.name, b]));
+  const children = new Map<string, BoardSpec[]>();
+  for (const b of spec.boards) if (b.fedFrom !== undefined) children.set(b.fedFrom, [...(children.get(b.fedFrom) ?? []), b]);
+  /** Loads on this board and every board it feeds that use the neutral (a loop is left to ruleTree). */
+  const neutralLoads = (board: BoardSpec): string[] => {
+    const names: string[] = [];
+    const seen = new Set<BoardSpec>();
+    const stack = [board];
+    while (stack.length) {
+      const b = stack.pop()!;
+      if (seen.has(b)) continue;
+      seen.add(b);
+      names.push(...b.loads.filter(usesNeutral).map((l) => `"${l.name}" on ${b.name}`));
+      stack.push(...(children.get(b.name) ?? []));
+    }
+    return names;
+  };
+  spec.boards.forEach((b, i) => {
+    const f = b.feeder;
+    if (!f) return;
+    const path = `boards[${i}].feeder`;
+    if (!f.line && (f.neutral || f.lengthM !== undefined || f.lengthFt !== undefined)) {
+      issues.push(inputIssue('missing', `${path}.line`, 'the line conductors: a size (mm2, awg or kcmil) or rOhmPerKm with the length, or r and x; write r: 0, x: 0 for lines of no impedance'));
+      return;
+    }
+    if (f.line && !f.neutral && systemHasNeutral(spec.supply.system) && byName.get(b.name) === b) {
+      const users = neutralLoads(b);
+      if (users.length)
+        issues.push(
+          inputIssue(
+            'missing',
+            `${path}.neutral`,
+            `the neutral conductor, which ${users.slice(0, 3).join(', ')}${users.length > 3 ? ` and ${users.length - 3} more` : ''} return through: its size with the length (e.g. neutral: { mm2: … }), or r: 0, x: 0 for a neutral of no impedance`,
+          ),
+        );
     }
   });
   return issues;
@@ -85,5 +142,5 @@ const ruleBoards =
 
 /** The installation's rules: one radial tree, then every board against `boardRules`. */
 export function installationRulesWith<I extends InstallationBaseSpec>(boardRules: readonly BoardRule<BoardOfInstallation<I>>[]): readonly ((spec: I) => InputIssue[])[] {
-  return [ruleTree, ruleBoards<I>(boardRules)];
+  return [ruleTree, ruleFeederConductors, ruleBoards<I>(boardRules)];
 }

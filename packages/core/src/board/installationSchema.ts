@@ -9,12 +9,12 @@
  */
 import * as z from 'zod';
 import { conventionsSchema, voltageLimitsSchema } from './conventions/conventionsSchema.js';
-import { feederSchema, loadSchemaWith, studiesSchema, supplySchema, type BoardFileExtension } from './boardSchema.js';
+import { feederSchema, loadSchemaWith, nameSchema, studiesSchema, supplySchema, type BoardFileExtension } from './boardSchema.js';
 
 const installationBoardSchemaWith = <L extends z.ZodRawShape>(loadFields: L) =>
   z.strictObject({
-    name: z.string().min(1).describe('board name (unique in the installation)'),
-    fedFrom: z.string().min(1).optional().describe('the board that feeds this one; leave out for the main board, which the supply feeds'),
+    name: nameSchema('board name, unique in the installation'),
+    fedFrom: nameSchema('the feeding board').optional().describe('the board that feeds this one; leave out for the main board, which the supply feeds'),
     feeder: feederSchema.optional().describe('the cable from the feeding board (for the main board: from the supply)'),
     voltageLimits: voltageLimitsSchema
       .optional()

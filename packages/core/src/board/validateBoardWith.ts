@@ -6,6 +6,7 @@
 import type * as z from 'zod';
 import { inputIssue, type InputIssue } from '../errors.js';
 import { allInputIssues } from '../_internal/zodIssues.js';
+import { eitherFormIssues } from './eitherFormIssues.js';
 import { feederSchema, supplySchema, type BoardBaseSpec, type LoadBaseSpec } from './boardSchema.js';
 import { partialBoardIssues, type BoardRule } from './boardRules.js';
 import { readTradeSpellings } from './conventions/readTradeSpellings.js';
@@ -37,7 +38,7 @@ export function validateBoardWith<T extends BoardBaseSpec>(checks: BoardFileChec
   const spelt = readTradeSpellings(input);
   const naming = spelt.spellings.naming;
   const parsed = checks.schema.safeParse(spelt.input);
-  const shapeIssues = allInputIssues(parsed.success ? [] : parsed.error.issues, spelt.input);
+  const shapeIssues = allInputIssues(parsed.success ? [] : eitherFormIssues(parsed.error.issues, spelt.input), spelt.input);
   if (parsed.success && shapeIssues.length === 0) {
     const issues = [...spelt.issues, ...inFileNaming(checks.rules.flatMap((rule) => rule(parsed.data)), naming)];
     return issues.length ? { ok: false, issues } : { ok: true, board: parsed.data };

@@ -6,6 +6,7 @@
 import type * as z from 'zod';
 import type { InputIssue } from '../errors.js';
 import { inputIssuesFromZod } from '../_internal/zodIssues.js';
+import { eitherFormIssues } from './eitherFormIssues.js';
 import type { BoardBaseSpec } from './boardSchema.js';
 import type { InstallationBaseSpec } from './installationSchema.js';
 import { validateBoardWith, type BoardFileChecks } from './validateBoardWith.js';
@@ -53,7 +54,7 @@ export function validateInstallationWith<I extends InstallationBaseSpec, B exten
   const spelt = readTradeSpellings(input);
   const naming = spelt.spellings.naming;
   const parsed = checks.schema.safeParse(spelt.input);
-  if (!parsed.success) return { ok: false, issues: [...spelt.issues, ...inFileNaming(inputIssuesFromZod(parsed.error.issues, spelt.input), naming)] };
+  if (!parsed.success) return { ok: false, issues: [...spelt.issues, ...inFileNaming(inputIssuesFromZod(eitherFormIssues(parsed.error.issues, spelt.input), spelt.input), naming)] };
   const issues = [...spelt.issues, ...inFileNaming(checks.rules.flatMap((rule) => rule(parsed.data)), naming)];
   return issues.length ? { ok: false, issues } : { ok: true, installation: parsed.data };
 }

@@ -20,6 +20,7 @@ import {
   CONNECTIONS,
   FREQUENCIES_HZ,
   LOAD_MODELS,
+  NAME_MAX_CHARACTERS,
   NOTATION_MAX_CHARS,
   PARALLEL_CONDUCTORS,
   PF_SENSES,
@@ -99,8 +100,13 @@ const feeder = strictObjectOf({
 });
 
 const fraction = numberIn(0, 1);
+/** boardSchema's nameSchema: 1 to NAME_MAX_CHARACTERS characters, at least one of them visible. */
+const nameText: PlainShape = (v) => {
+  const text = textOf(1, NAME_MAX_CHARACTERS)(v);
+  return text !== NOT_THIS_SHAPE && /\S/.test(text as string) ? text : NOT_THIS_SHAPE;
+};
 const load = strictObjectOf({
-  name: required(textOf(1)),
+  name: required(nameText),
   circuit: optional(textOf(1)),
   breakerA: optional(within(R.ratingA)),
   poles: optional(oneOf(BREAKER_POLES)),

@@ -112,7 +112,7 @@ export function renderOneLineDiagram(result: InstallationResult, options: OneLin
     ? `<circle${attrs({ cx: sx, cy: sy - 6, r: 11, fill: 'none', stroke: INK, 'stroke-width': 1.5 })}/><circle${attrs({ cx: sx, cy: sy + 8, r: 11, fill: 'none', stroke: INK, 'stroke-width': 1.5 })}/>`
     : `<circle${attrs({ cx: sx, cy: sy, r: 13, fill: 'none', stroke: INK, 'stroke-width': 1.5 })}/><path${attrs({ d: `M ${coord(sx - 8)} ${coord(sy)} q 4 -8 8 0 t 8 0`, fill: 'none', stroke: INK, 'stroke-width': 1.3 })}/>`;
   const b = first.board;
-  const volts = b.nominalLineToLineV !== null ? `${fixed(b.nominalLineToLineV, 0)}/${fixed(b.nominalLineToNeutralV, 0)} V` : `${fixed(b.nominalLineToNeutralV, 0)} V`;
+  const volts = first.conventions.voltageNotation;
   const transformerLine = first.transformer ? [`transformer ${fixed(first.transformer.ratedKVA, 0)} kVA`] : [];
   const supplyLines = (options.supplyLines ?? [`Supply ${volts} · ${b.frequencyHz} Hz`, ...transformerLine]).slice(0, 2);
   const supplyTextWidth = width - (sx + 24) - L.margin;
@@ -173,7 +173,7 @@ export function renderOneLineDiagram(result: InstallationResult, options: OneLin
     `<title>${escapeXml(`${title}: ${result.installation.name}`)}</title>` +
     `<rect${attrs({ x: 0, y: 0, width, height, fill: '#FFFFFF' })}/>` +
     text(16, 22, 15, fit(title, width - 32, 15), { 'font-weight': 'bold' }) +
-    text(16, 40, 11, fit(`${result.installation.name} · ${result.installation.boardCount} boards`, width - 32, 11), { fill: MUTED_INK }) +
+    text(16, 40, 11, fit(`${result.installation.name} · ${result.installation.boardCount} board${result.installation.boardCount === 1 ? '' : 's'}`, width - 32, 11), { fill: MUTED_INK }) +
     parts.join('') +
     `</svg>\n`
   );

@@ -43,7 +43,10 @@ export function resolveConventions(spec: ConventionsInput, nominal: { ln: number
         : typeof limits === 'string'
           ? presetLimits(limits as VoltageLimitPresetName)
           : customLimits(limits.underPercent, limits.overPercent),
-    voltageNotation: writeVoltageNotation(spec.supply.system, nominal.ln, nominal.ll, region),
+    // A file that wrote "208Y/120" keeps its nominal figures (not 208/√3 = 120.1).
+    voltageNotation: written?.ok
+      ? writeVoltageNotation(spec.supply.system, written.notation.lineToNeutralV, written.notation.lineToLineV, region)
+      : writeVoltageNotation(spec.supply.system, nominal.ln, nominal.ll, region),
   };
 }
 

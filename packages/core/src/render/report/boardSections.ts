@@ -199,6 +199,9 @@ export interface ResultBlockOptions {
 export function resultBlocks(result: BoardResult, options: ResultBlockOptions = {}): ReportBlock[] {
   const prefix = options.figurePrefix ?? '';
   const blocks: ReportBlock[] = [];
+  // As the text report does: a collapse is said before any figure, so none is read as a working board.
+  if (result.operatingPoint.collapsed)
+    blocks.push({ kind: 'list', tone: 'warning', items: ['Supply collapse: the supply cannot carry these loads; the figures below are not a working board.', ...result.operatingPoint.findings] });
   const label = (t: string) => labelIn(result.conventions.phaseNames, t);
   const rows = result.phases.map((p) => [
     label(p.phase),

@@ -14,7 +14,6 @@ import { boardSection, boardSectionIds, feedersSection, installationDescription,
 import { closingSections, placeSection } from './buildBoardReport.js';
 import { correctionSection, resonanceSection } from './correctionSection.js';
 import { openNeutralSection } from './boardSections.js';
-import { fixed } from '../svgText.js';
 import { INSTALLATION_ASSUMPTIONS } from './reportWording.js';
 
 export interface InstallationReportInput {
@@ -66,10 +65,10 @@ export function buildInstallationReport(input: InstallationReportInput): ReportD
     }),
   );
   const main = result.boards[0]!.result.board;
-  const volts = main.nominalLineToLineV !== null ? `${fixed(main.nominalLineToLineV, 0)}/${fixed(main.nominalLineToNeutralV, 0)} V` : `${fixed(main.nominalLineToNeutralV, 0)} V`;
+  const volts = result.boards[0]!.result.conventions.voltageNotation;
   return {
     title: result.installation.name,
-    subtitle: `Installation report · ${result.installation.boardCount} boards · ${volts} · ${main.frequencyHz} Hz`,
+    subtitle: `Installation report · ${result.installation.boardCount} board${result.installation.boardCount === 1 ? '' : 's'} · ${volts} · ${main.frequencyHz} Hz`,
     sections,
   };
 }

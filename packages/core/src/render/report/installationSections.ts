@@ -43,7 +43,7 @@ function feederWords(spec: InstallationBaseSpec, result: InstallationResult, nam
 /** The supply lines printed beside the source symbol of the one-line drawing. */
 export function supplyLinesOf(spec: InstallationBaseSpec, result: InstallationResult): string[] {
   const b = result.boards[0]!.result.board;
-  const volts = b.nominalLineToLineV !== null ? `${fixed(b.nominalLineToLineV, 0)}/${fixed(b.nominalLineToNeutralV, 0)} V` : `${fixed(b.nominalLineToNeutralV, 0)} V`;
+  const volts = result.boards[0]!.result.conventions.voltageNotation;
   const t = spec.supply.transformer;
   return [`Supply ${volts} · ${b.frequencyHz} Hz`, t ? `transformer ${t.kVA} kVA, ${t.impedancePercent} %` : sourceWords(spec.supply)];
 }

@@ -1,0 +1,55 @@
+/**
+ * Installation files a user could write by mistake (or on purpose), through the
+ * built binary: a collapsed sub-board, a 500-board chain, a broken-neutral study
+ * asked of the whole installation, the same file as JSON on stdin.
+ */
+import { describe, expect, it } from 'vitest';
+import { ROOT, runTrivar } from './runTrivar.js';
+import { readFileSync } from 'node:fs';
+import { readBoardText } from '@trivar/core';
+
+const SUPPLY = 'supply: { system: three-phase-4wire, voltage: { lineToLine: 400 }, frequencyHz: 50 }';
+const noStack = (stderr: string) => expect(stderr).not.toMatch(/\n\s+at .+[:(]\d+/);
+
+describe('hostile installations through the CLI', () => {
+  it('a sub-board whose feeder cannot carry its load: figures printed, SUPPLY COLLAPSE named at the board, exit 4', () => {
+    const text = `${SUPPLY}\nboards:\n  - { name: Main, loads: [] }\n  - { name: Far shed, fedFrom: Main, feeder: { lengthM: 500, line: { mm2: 2.5 }, neutral: { mm2: 2.5 } }, loads: [{ name: plant, connection: ABC-delta, kW: 200, pf: 0.9 }] }\n`;
+    const r = runTrivar(['solve', '-'], text);
+    expect(r.code).toBe(4);
+    noStack(r.stderr);
+    expect(r.stderr).toMatch(/no viable operating point.*Far shed: the board voltage has collapsed/);
+    expect(r.stdout).toMatch(/SUPPLY COLLAPSE[^\n]*\n {2}! Far shed: /);
+    expect(r.stdout).toMatch(/Feeders/);
+  });
+
+  it('a 500-board chain solves, and the board table indents no deeper than six levels', () => {
+    const boards = ['  - { name: B0, loads: [] }'];
+    for (let k = 1; k < 500; k++)
+      boards.push(`  - { name: B${k}, fedFrom: B${k - 1}, feeder: { lengthM: 2, line: { mm2: 95 }, neutral: { mm2: 95 } }, loads: [{ name: l${k}, connection: A-N, kW: 0.05 }] }`);
+    const r = runTrivar(['solve', '-'], `${SUPPLY}\nboards:\n${boards.join('\n')}\n`);
+    expect(r.code, r.stderr).toBe(0);
+    const table = r.stdout.slice(r.stdout.indexOf('Boards'), r.stdout.indexOf('Feeders'));
+    expect(table).toMatch(/\n {14}└ B7 \(level 8\) /);
+    expect(table).toMatch(/\n {14}└ B499 \(level 500\) /);
+    expect(Math.max(...table.split('\n').map((l) => l.length))).toBeLessThan(120);
+  });
+
+  it('--open-neutral on the whole installation shows a row per board and the cautions, not nothing', () => {
+    const r = runTrivar(['solve', 'examples/maple-court-riser.yaml', '--open-neutral']);
+    expect(r.code, r.stderr).toBe(0);
+    const block = r.stdout.slice(r.stdout.indexOf("If a board's neutral broke"));
+    for (const board of ['Main switchboard', 'Plant room', 'Floor 1', 'Floor 4']) expect(block).toMatch(new RegExp(`\\n  ${board} +\\d+\\.\\d +\\d+\\.\\d +\\d+\\.\\d +reached`));
+    expect(block).toMatch(/A broken neutral is a hazardous condition/);
+    expect(block).toMatch(/Never switch, fuse or disconnect the neutral/);
+    // Without the study, no such section.
+    expect(runTrivar(['solve', 'examples/maple-court-riser.yaml']).stdout).not.toMatch(/neutral broke/);
+  });
+
+  it('the same installation as JSON on stdin gives the same figures as the YAML file', () => {
+    const json = JSON.stringify(readBoardText(readFileSync(`${ROOT}examples/tannery-lane-works.yaml`, 'utf8')));
+    const fromJson = runTrivar(['solve', '-', '--json'], json);
+    const fromYaml = runTrivar(['solve', 'examples/tannery-lane-works.yaml', '--json']);
+    expect(fromJson.code, fromJson.stderr).toBe(0);
+    expect(JSON.parse(fromJson.stdout)).toEqual(JSON.parse(fromYaml.stdout));
+  });
+});
