@@ -47,6 +47,8 @@ const REL = 1e-9;
 function collapsed(spec: BoardSpec, parents: readonly number[], placeOf: readonly number[], bankOn: number): InstallationSpec {
   const hasNeutral = spec.supply.system !== 'three-phase-3wire';
   const zero = { line: { r: 0, x: 0 }, ...(hasNeutral ? { neutral: { r: 0, x: 0 } } : {}) };
+  // An installation's feeder names its line and neutral conductors (installationRules); a board
+  // file's feeder may leave either out for none, so the main board's feeder is completed with zeros.
   const count = parents.length + 1;
   const names = Array.from({ length: count }, (_, b) => (b === 0 ? 'main' : `sub ${b}`));
   const { bank, ...shared } = spec.harmonics ?? {};
@@ -56,7 +58,7 @@ function collapsed(spec: BoardSpec, parents: readonly number[], placeOf: readonl
     ...(spec.conventions ? { conventions: spec.conventions } : {}),
     boards: names.map((name, b) => ({
       name,
-      ...(b === 0 ? (spec.feeder ? { feeder: spec.feeder } : {}) : { fedFrom: names[parents[b - 1]!]!, feeder: zero }),
+      ...(b === 0 ? (spec.feeder ? { feeder: { ...zero, ...spec.feeder } } : {}) : { fedFrom: names[parents[b - 1]!]!, feeder: zero }),
       loads: spec.loads.filter((_, i) => placeOf[i]! % count === b),
     })),
     harmonics: { ...shared, ...(bank ? { banks: [{ ...bank, board: names[bankOn % count]! }] } : {}) },
