@@ -3,6 +3,7 @@ import { bandWords, labelIn, type InstallationResult } from '@trivar/core';
 import { fixed, renderTable, section } from './textTable.js';
 import { renderSolveReport } from './solveReport.js';
 import { REPORT_WIDTH, wrapText } from './wrapText.js';
+import { treeName } from './treeName.js';
 
 const note = (text: string) => `${wrapText(text, '  (', '   ', REPORT_WIDTH - 1)})`;
 
@@ -13,8 +14,6 @@ const SYSTEM_WORDS: Record<string, string> = {
   'single-phase': 'single-phase 2-wire',
 };
 
-/** Board names indented by their depth in the tree, so the table reads as the riser does. */
-const treeName = (name: string, depth: number) => `${'  '.repeat(depth - 1)}${depth > 1 ? '└ ' : ''}${name}`;
 
 const VERDICT_CELL = { within: 'ok', under: 'UNDER', over: 'OVER', 'under-and-over': 'UNDER+OVER' } as const;
 
