@@ -110,3 +110,22 @@ describe('the arrangement comparison with the harmonic check', () => {
     expect(c.why).toContain('Harmonic check');
   });
 });
+
+describe('the harmonic check of a correction judges the duty at the study’s capacitance tolerance', () => {
+  const spec = example('quayside-print-works.yaml');
+  const board = normaliseBoard(spec);
+  it.each([
+    [{ minusPercent: 0, plusPercent: 15 }, [100, 115]],
+    [{ minusPercent: 10, plusPercent: 5 }, [100, 90, 105]],
+  ])('tolerance %o: every state checked at capacitance %o %%', (capacitanceTolerance, ends) => {
+    const report = correctWithHarmonics(spec, board, { ...spec.correction, capacitanceTolerance });
+    expect(report.selection!.capacitanceTolerance).toEqual(capacitanceTolerance);
+    const duty = report.harmonics.check!.capacitorDuty!;
+    expect(duty.capacitanceTolerance).toEqual(capacitanceTolerance);
+    expect([...new Set(duty.conditions.map((c) => c.capacitancePercent))]).toEqual(ends);
+  });
+  it('without one in the study, the default −5 % … +10 % (IEC 60831-1, from memory)', () => {
+    const duty = correctWithHarmonics(spec, board, spec.correction).harmonics.check!.capacitorDuty!;
+    expect(duty.capacitanceTolerance).toEqual({ minusPercent: 5, plusPercent: 10 });
+  });
+});

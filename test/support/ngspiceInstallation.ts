@@ -30,6 +30,10 @@ export interface HarmonicOrderParts {
   readonly emf: readonly ComplexValue[];
   readonly fundamental: InstallationSolution;
   readonly models: readonly HarmonicModel[];
+  /** For a frequency scan: a 1 A AC source into terminal `into` of board `board`, drawn from terminal `from`. */
+  readonly drive?: { readonly board: number; readonly into: string; readonly from: string };
+  /** Loads left out, as `board:load` (bank steps that are off). */
+  readonly omit?: ReadonlySet<string>;
 }
 
 const polar = (m: number, a: number): ComplexValue => ({ re: m * Math.cos(a), im: m * Math.sin(a) });
@@ -101,7 +105,7 @@ export function buildInstallationNetlist(installation: Installation, solution: I
     s.board.loads.forEach((load, li) =>
       load.branches.forEach((br, bi) => {
         const state = s.branches[li]![bi]!;
-        if (!state.energised) return;
+        if (!state.energised || harmonic?.omit?.has(`${b}:${li}`)) return;
         const name = `L${b}_${li}_${bi}`;
         const mid = `m${b}_${li}_${bi}`;
         lines.push(`VI${name} ${nodeOf(br.from)} ${mid} DC 0`);
@@ -125,6 +129,7 @@ export function buildInstallationNetlist(installation: Installation, solution: I
         else lines.push(...((li + bi) % 2 === 0 ? seriesElements(name, mid, nodeOf(br.to), z, omega) : parallelElements(name, mid, nodeOf(br.to), state.admittance, omega)));
       }),
     );
+    if (harmonic?.drive?.board === b) lines.push(`IDRIVE ${nodeOf(harmonic.drive.from)} ${nodeOf(harmonic.drive.into)} AC 1 0`);
     const feedsNeutral = main.hasNeutral && (b === 0 ? !main.neutralOpen : !installation.subBoards[b - 1]!.feeder.neutralOpen);
     if (main.hasNeutral && (barUsed || feedsNeutral)) probes.push({ vector: `v(${bar(b)})`, label: `${s.board.name} neutral bar voltage`, kind: 'voltage', core: voltage(b, topo.neutralNode) });
   });

@@ -190,8 +190,7 @@ export { HARMONICS_DEFAULTS } from './harmonics/harmonicsDefaults.js';
 export { HARMONICS_CAUTIONS } from './harmonics/harmonicsWording.js';
 export type { FixedNetworkInput } from './network/solveFixedNetwork.js';
 export { solveFixedNetwork } from './network/solveFixedNetwork.js';
-export type { PassiveNetworkPlan, NodalMatrix } from './network/terminalImpedance.js';
-export { planPassiveNetwork } from './network/terminalImpedance.js';
+export type { NodalMatrix } from './network/terminalImpedance.js';
 export type { CorrectionVariant, CorrectionHarmonics, HarmonicCorrectionReport, ArrangementHarmonics, HarmonicComparison } from './harmonics/correctWithHarmonics.js';
 export { correctWithHarmonics, compareWithHarmonics, boardHasHarmonicData, bankOfReport } from './harmonics/correctWithHarmonics.js';
 

@@ -6,10 +6,9 @@
 import type { BoardHarmonics, InstallationHarmonicsReport } from '@trivar/core';
 import { fixed, renderTableWithin, section } from './textTable.js';
 import { wrapText } from './wrapText.js';
+import { treeName } from './boardTree.js';
 import { currentTable, dutyLines, labeller, neutralLines, prose, resonanceTitle, scanLine, scanTable, spectraLines, tddLines, voltageTable } from './harmonicsReport.js';
 
-/** Board names indented by their depth in the tree, as `trivar solve` shows them. */
-const treeName = (name: string, depth: number) => `${'  '.repeat(depth - 1)}${depth > 1 ? '└ ' : ''}${name}`;
 
 /** The busbar voltage with the highest THD: its label and THD. */
 function worstBus(b: BoardHarmonics): { bus: string; thd: number } | null {

@@ -25,7 +25,7 @@ import { TYPICAL_CATALOGUES, catalogueUnitOf } from '../correction/unitCatalogue
 import type { BankStep, CorrectionReport, CorrectionWarning } from '../correction/correctionResult.js';
 import { ARRANGEMENT_NAMES, CORRECTION_CAUTIONS, reportSummary } from '../correction/correctionWording.js';
 import type { CapacitorUnitSpec } from '../correction/correctionSpec.js';
-import { resolveHarmonicModel, type BankModel } from './harmonicModel.js';
+import { resolveHarmonicModel, type BankModel, type HarmonicModel } from './harmonicModel.js';
 import type { HarmonicsBoardSpec } from './harmonicsSpec.js';
 import { analyseHarmonics } from './studyHarmonics.js';
 import { DETUNING_FACTORS_PERCENT, capacitorVoltage, tuningOrder } from './detuning.js';
@@ -210,10 +210,19 @@ export function bankOfReport(board: Board, report: CorrectionReport): { board: B
   };
 }
 
+/**
+ * The bank checked is the one the correction study chose, so its duty is judged at the ends of the
+ * capacitance tolerance that study chose the units with (the `harmonics.bank` tolerance is the installed bank's).
+ */
+function withStudyTolerance(model: HarmonicModel, report: CorrectionReport): HarmonicModel {
+  const tolerance = report.selection?.capacitanceTolerance;
+  return tolerance ? { ...model, capacitanceTolerance: { minusPercent: tolerance.minusPercent, plusPercent: tolerance.plusPercent } } : model;
+}
+
 function variantOf(spec: HarmonicsBoardSpec, board: Board, report: CorrectionReport, name: string, percent: number): VariantRun {
   const p = percent / 100;
   const bank = bankOfReport(board, report);
-  const harmonics = bank ? analyseHarmonics(bank.board, resolveHarmonicModel(spec, bank.board, bank.model)) : null;
+  const harmonics = bank ? analyseHarmonics(bank.board, withStudyTolerance(resolveHarmonicModel(spec, bank.board, bank.model), report)) : null;
   const peaks = harmonics?.scan.combinations.flatMap((c) => c.peaks.map((pk) => pk.order)) ?? [];
   const resonantOrders = [...new Set(harmonics?.scan.combinations.flatMap((c) => c.nearOrders) ?? [])].sort((a, b) => a - b);
   const duty = harmonics?.capacitorDuty ?? null;

@@ -9,7 +9,7 @@
 import { isFiniteComplex, type ComplexValue } from '../complex.js';
 import { NumericalError } from '../errors.js';
 import type { Installation } from '../board/boardModel.js';
-import { REFERENCE } from './circuit.js';
+import { injectBranchSource } from './solveFixedNetwork.js';
 import { compileInstallation, readInstallationSolution, type InstallationSolution } from './solveNetwork.js';
 
 /** Per board (0 = main board, i + 1 = `subBoards[i]`), per load, per branch. */
@@ -41,18 +41,7 @@ export function solveFixedInstallation(installation: Installation, input: FixedI
         net.admittanceIm[k] = y.im;
         const j = input.branchSources?.[b]?.[l]?.[i] ?? null;
         sources[k] = j;
-        if (j) {
-          // The source draws j out of `from` and returns it into `to`.
-          const { from, to } = layout.circuit.branches[k]!;
-          if (from !== REFERENCE) {
-            net.injectionRe[from] = net.injectionRe[from]! - j.re;
-            net.injectionIm[from] = net.injectionIm[from]! - j.im;
-          }
-          if (to !== REFERENCE) {
-            net.injectionRe[to] = net.injectionRe[to]! + j.re;
-            net.injectionIm[to] = net.injectionIm[to]! + j.im;
-          }
-        }
+        if (j) injectBranchSource(net, layout.circuit.branches[k]!.from, layout.circuit.branches[k]!.to, j);
         k++;
       }),
     );

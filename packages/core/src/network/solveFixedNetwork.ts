@@ -11,6 +11,7 @@ import { NumericalError } from '../errors.js';
 import type { Board } from '../board/boardModel.js';
 import { REFERENCE } from './networkTopology.js';
 import { compileBoard, type BranchState, type NetworkSolution } from './solveNetwork.js';
+import type { CompiledNetwork } from './compiledNetwork.js';
 
 export interface FixedNetworkInput {
   /** Per load, per branch: the admittance to use, S. */
@@ -22,6 +23,18 @@ export interface FixedNetworkInput {
    * such a source with a zero admittance beside it.
    */
   readonly branchSources?: readonly (readonly (ComplexValue | null)[] | undefined)[];
+}
+
+/** Adds an ideal current source j across a branch: it draws j out of node `from` and returns it into `to`. */
+export function injectBranchSource(net: CompiledNetwork, from: number, to: number, j: ComplexValue): void {
+  if (from !== REFERENCE) {
+    net.injectionRe[from] = net.injectionRe[from]! - j.re;
+    net.injectionIm[from] = net.injectionIm[from]! - j.im;
+  }
+  if (to !== REFERENCE) {
+    net.injectionRe[to] = net.injectionRe[to]! + j.re;
+    net.injectionIm[to] = net.injectionIm[to]! + j.im;
+  }
 }
 
 /**
@@ -44,17 +57,7 @@ export function solveFixedNetwork(board: Board, input: FixedNetworkInput): Netwo
       index++;
       const j = sourceOf(l, k);
       if (!j) return;
-      // The source draws j out of `from` and returns it into `to`.
-      const from = topo.terminalNode.get(b.from)!;
-      const to = topo.terminalNode.get(b.to)!;
-      if (from !== REFERENCE) {
-        net.injectionRe[from] = net.injectionRe[from]! - j.re;
-        net.injectionIm[from] = net.injectionIm[from]! - j.im;
-      }
-      if (to !== REFERENCE) {
-        net.injectionRe[to] = net.injectionRe[to]! + j.re;
-        net.injectionIm[to] = net.injectionIm[to]! + j.im;
-      }
+      injectBranchSource(net, topo.terminalNode.get(b.from)!, topo.terminalNode.get(b.to)!, j);
     }),
   );
   net.solveLinear();

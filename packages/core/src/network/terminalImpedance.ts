@@ -1,71 +1,14 @@
 /**
- * Impedance seen between terminals of a board with every EMF shorted (the
- * network "looking in" from the board, as a frequency scan needs it).
- *
- * The node numbering comes from `compileBoard`, the same as every solve (each
- * source folded into its line); with the EMFs shorted a bus an ideal EMF holds
- * is the star point, so the unknowns are the board's own nodes (phase buses, neutral bar, floating star points).
- * That leaves a handful of unknowns, so the matrix lives in two flat typed
- * arrays and is inverted in place: a scan evaluates it hundreds of thousands
- * of times, and the general solve's object arithmetic would dominate (see
- * bench/harmonic-scan.mjs). `solveFixedNetwork` with a 1 A source between the
- * two terminals gives the same numbers (test/harmonics checks it).
+ * Nodal matrices for the impedance seen between terminals with every EMF
+ * shorted (the network "looking in" from a board, as a frequency scan needs
+ * it; harmonics/scanEvaluator.ts numbers the unknowns from the compiled
+ * circuit). A scan evaluates hundreds of thousands of them, so a matrix lives
+ * in two flat typed arrays and is inverted in place: the general solve's
+ * object arithmetic would dominate (see bench/harmonic-scan.bench.ts).
+ * `solveFixedNetwork` with a 1 A source between the two terminals gives the
+ * same numbers (test/harmonics checks it).
  */
-import type { ComplexValue } from '../complex.js';
 import { NumericalError } from '../errors.js';
-import type { Board, Terminal } from '../board/boardModel.js';
-import { REFERENCE } from './networkTopology.js';
-import { compileBoard } from './solveNetwork.js';
-
-/** The board's nodes with the EMFs shorted: which unknown each terminal and branch end is. */
-export interface PassiveNetworkPlan {
-  /** Number of unknown node voltages. */
-  readonly size: number;
-  /** Unknown of each terminal; -1 for the star point (and for a bus fed by an ideal source). */
-  readonly terminalIndex: ReadonlyMap<Terminal, number>;
-  /** Per phase, the unknown of its bus (-1 when an ideal source holds it). */
-  readonly busIndex: readonly number[];
-  /** Unknown of the neutral bar; -1 when solidly tied to the star point; null without a neutral. */
-  readonly neutralIndex: number | null;
-  /** Per load, per branch: the two unknowns it joins (-1 = star point); null for a dead branch. */
-  readonly branchEnds: readonly (readonly ([number, number] | null)[])[];
-}
-
-/**
- * Numbers the unknowns of the passive network. Nodes that nothing live reaches
- * (a dead branch's private star point) are left out.
- */
-export function planPassiveNetwork(board: Board): PassiveNetworkPlan {
-  // Same numbering and the same idea of which nodes conduct as every solve.
-  const { topology: topo, network } = compileBoard(board);
-  const live = Array.from(network.live, (x) => x === 1);
-  // Buses an ideal EMF holds (no line impedance) sit on the star point once the EMFs are shorted.
-  const sources = new Set(network.circuit.sources.filter((s) => !s.admittance).map((s) => s.plus));
-  const index = new Array<number>(topo.nodeNames.length).fill(-1);
-  let size = 0;
-  live.forEach((ok, node) => {
-    // Shorted EMFs put the source terminals on the star point.
-    if (ok && !sources.has(node)) index[node] = size++;
-  });
-  const unknownOf = (node: number) => (node === REFERENCE ? -1 : index[node]!);
-  const terminalIndex = new Map<Terminal, number>();
-  for (const [t, node] of topo.terminalNode) terminalIndex.set(t, unknownOf(node));
-  const branchEnds = board.loads.map((load) =>
-    load.branches.map((b): [number, number] | null => {
-      const p = topo.terminalNode.get(b.from)!;
-      const q = topo.terminalNode.get(b.to)!;
-      const alive = (n: number) => n === REFERENCE || live[n] === true;
-      return alive(p) && alive(q) ? [unknownOf(p), unknownOf(q)] : null;
-    }),
-  );
-  return {
-    size,
-    terminalIndex,
-    busIndex: topo.busNode.map(unknownOf),
-    neutralIndex: board.hasNeutral && topo.neutralNode !== undefined ? unknownOf(topo.neutralNode) : null,
-    branchEnds,
-  };
-}
 
 /** A nodal admittance matrix, row-major, real and imaginary parts apart. */
 export interface NodalMatrix {
@@ -98,25 +41,6 @@ export function stampAdmittance(m: NodalMatrix, p: number, q: number, g: number,
     m.re[q * n + p] = m.re[q * n + p]! - g;
     m.im[q * n + p] = m.im[q * n + p]! - b;
   }
-}
-
-/**
- * Stamps the fixed elements: each line (source + feeder) from its bus to the
- * star point, and the neutral conductor from the bar to the star point.
- * Admittances as complex values, one for every line or one per line in phase
- * order; null for none.
- */
-export function stampConductors(
-  plan: PassiveNetworkPlan,
-  m: NodalMatrix,
-  lineAdmittance: ComplexValue | readonly (ComplexValue | null)[] | null,
-  neutralAdmittance: ComplexValue | null,
-): void {
-  plan.busIndex.forEach((bus, k) => {
-    const y = Array.isArray(lineAdmittance) ? lineAdmittance[k] : (lineAdmittance as ComplexValue | null);
-    if (y) stampAdmittance(m, bus, -1, y.re, y.im);
-  });
-  if (neutralAdmittance && plan.neutralIndex !== null && plan.neutralIndex >= 0) stampAdmittance(m, plan.neutralIndex, -1, neutralAdmittance.re, neutralAdmittance.im);
 }
 
 /**
