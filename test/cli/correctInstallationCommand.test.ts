@@ -114,6 +114,17 @@ describe('--measured-at: the target judged away from the bank board', () => {
     expect(r.stderr).toContain('correction.target.measuredAt: expected origin');
   });
 
+  it('the HTML report of a file whose correction section measures at the origin says so, with the PF reached there', () => {
+    const text = `${readFileSync(`${ROOT}${works}`, 'utf8')}correction: { board: Press shop, arrangement: star-bank, target: { pf: 0.97, measuredAt: origin } }\n`;
+    const r = runTrivar(['report', '-'], text);
+    expect(r.code).toBe(0);
+    expect(r.stdout).toContain('Target measured at');
+    expect(r.stdout).toContain('the origin of the installation');
+    const installation = normaliseInstallation(parseInstallation(readBoardText(text))).installation;
+    const m = correctInstallation(installation, { arrangement: 'star-bank', target: { pf: 0.97, measuredAt: 'origin' } }, { board: 'Press shop' }).report.verification.metering!;
+    expect(r.stdout).toContain(`${m.powerFactor.vector.before.toFixed(3)} → ${m.powerFactor.vector.after.toFixed(3)}`);
+  });
+
   it('on a single-board file, origin takes in the service cable', () => {
     const r = runTrivar(['correct', 'examples/riverside-cold-store.yaml', '--measured-at', 'origin', '--arrangement', 'delta-bank']);
     expect([0, 5]).toContain(r.code);

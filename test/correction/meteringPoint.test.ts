@@ -100,6 +100,9 @@ describe('the target measured upstream of the bank, verified by an independent r
     const plain = correctInstallation(modelOf(tannery), { arrangement: 'star-bank', target: { pf: 0.95 } }, { board: 'Press shop' });
     expect(own.report.verification.metering).toBeUndefined();
     expect(own.report.selection).toEqual(plain.report.selection);
+    // The controller's CT reads at the bank: the report says so when the target is measured elsewhere.
+    expect(c1.report.warnings.filter((w) => w.code === 'controller-reads-elsewhere')).toHaveLength(1);
+    expect(own.report.warnings.some((w) => w.code === 'controller-reads-elsewhere')).toBe(false);
   });
 });
 

@@ -1,9 +1,9 @@
 /** CorrectionReport → the human-readable report of `trivar correct` (fits 100 columns). */
-import { labellerOf, type BankSelection, type BankStep, type BeforeAfter, type BranchSizing, type CompensatorSizing, type ControllerSettings, type CorrectionReport, type CorrectionVerification, type PhaseLabeller } from '@trivar/core';
+import { labellerOf, meteringPointWords, type BankSelection, type BankStep, type BeforeAfter, type BranchSizing, type CompensatorSizing, type ControllerSettings, type CorrectionReport, type CorrectionVerification, type PhaseLabeller } from '@trivar/core';
 import { fixed, renderTable, section } from './textTable.js';
 import { headerLines } from './solveReport.js';
 import { wrapText } from './wrapText.js';
-import { meteringPointWords, meteringSection } from './meteringSection.js';
+import { meteringSection } from './meteringSection.js';
 
 const ARRANGEMENT_WORDS: Record<string, string> = {
   'star-bank': 'star-connected capacitor bank (one capacitor per phase)',

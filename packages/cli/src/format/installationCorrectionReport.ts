@@ -2,13 +2,12 @@
  * `trivar correct` on an installation: where the equipment goes, the study on that board, then what the
  * equipment does to every board, feeder and the supply (fits 100 columns).
  */
-import type { BeforeAfter, InstallationComparison, InstallationCorrection, InstallationEffect } from '@trivar/core';
+import { meteringPointWords, type BeforeAfter, type InstallationComparison, type InstallationCorrection, type InstallationEffect } from '@trivar/core';
 import { fixed, renderTableWithin, section } from './textTable.js';
 import { treeName } from './boardTree.js';
 import { renderCorrectionReport } from './correctionReport.js';
 import { renderComparisonReport } from './comparisonReport.js';
 import { REPORT_WIDTH, wrapText } from './wrapText.js';
-import { meteringPointWords } from './meteringSection.js';
 
 const note = (text: string) => `${wrapText(text, '  (', '   ', REPORT_WIDTH - 1)})`;
 const change = (x: BeforeAfter | null, digits: number) => (x === null ? '' : `${fixed(x.before, digits)} → ${fixed(x.after, digits)}`);

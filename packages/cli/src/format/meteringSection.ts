@@ -1,11 +1,7 @@
 /** Where a correction target is measured, when that is not the equipment's board: its readings before → after. */
-import type { BeforeAfter, MeteringReadings } from '@trivar/core';
+import { meteringPointWords, type BeforeAfter, type MeteringReadings } from '@trivar/core';
 import { fixed, section } from './textTable.js';
 import { wrapText } from './wrapText.js';
-
-/** The metering point in words: the origin, or a board's incomer. */
-export const meteringPointWords = (point: string): string =>
-  point === 'origin' ? "the origin of the installation (the supply's terminals, where the service cable starts)" : `the incomer of ${point}`;
 
 const arrow = (x: BeforeAfter, digits: number, unit = '') => `${fixed(x.before, digits)}${unit} → ${fixed(x.after, digits)}${unit}`;
 

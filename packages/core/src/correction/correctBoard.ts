@@ -19,7 +19,7 @@ import { defaultPractice, selectBankUnits } from './selectBankUnits.js';
 import { verifyCorrection, type VerifyCorrectionOptions } from './verifyCorrection.js';
 import { scaleBoardLoads } from './scaleBoardLoads.js';
 import type { BankSizing, CompensatorSizing, CorrectionReport, CorrectionStatus, CorrectionWarning, SizedEquipment } from './correctionResult.js';
-import { ARRANGEMENT_NAMES, correctionCautions, infeasibleReason, reportSummary, warningText } from './correctionWording.js';
+import { ARRANGEMENT_NAMES, correctionCautions, infeasibleReason, meteringWarning, reportSummary, warningText } from './correctionWording.js';
 import { definedOnly } from './_internal/optionSchemas.js';
 import { assertViableBoard } from '../analysis/viableOperatingPoint.js';
 import { CORRECTION_DEFAULTS } from './correctionDefaults.js';
@@ -193,6 +193,9 @@ export function correctBoard(board: Board, spec: unknown): CorrectionReport {
     ...(selection?.warnings ?? []).filter((w) => !settledByVerdict.has(w.code)),
     ...(resizing?.used ? [{ code: 'reactors-resized', message: warningText.reactorsResized(resizedWords(resizing.reactors)), path: null, value: null, threshold: null }] : []),
     ...verification.warnings,
+    ...(verification.metering && selection?.controller
+      ? [{ code: 'controller-reads-elsewhere', message: meteringWarning(verification.metering.point, board.name), path: 'target.measuredAt', value: null, threshold: null }]
+      : []),
   ];
   const what = ARRANGEMENT_NAMES[parsed.arrangement];
   const delivered = selection?.deliveredKvar ?? 0;

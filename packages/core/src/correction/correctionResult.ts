@@ -323,6 +323,14 @@ export interface LightLoadCheck {
   readonly after: BoardResult;
 }
 
+/** The board-wide power factors before and after (null where a definition does not exist: fewer than three phases). */
+export interface PowerFactorsBeforeAfter {
+  readonly effective: BeforeAfter | null;
+  readonly vector: BeforeAfter;
+  readonly arithmetic: BeforeAfter;
+  readonly positiveSequence: BeforeAfter | null;
+}
+
 export interface CorrectionVerification {
   readonly equipment: readonly EquipmentGroup[];
   /** The corrected board (design state, nominal capacitance), ready to solve again or to simulate elsewhere. */
@@ -334,12 +342,7 @@ export interface CorrectionVerification {
   readonly checkBefore: TargetCheck;
   readonly branches: readonly BranchSizing[];
   readonly lines: readonly LineComparison[];
-  readonly powerFactor: {
-    readonly effective: BeforeAfter | null;
-    readonly vector: BeforeAfter;
-    readonly arithmetic: BeforeAfter;
-    readonly positiveSequence: BeforeAfter | null;
-  };
+  readonly powerFactor: PowerFactorsBeforeAfter;
   readonly neutralCurrentA: BeforeAfter | null;
   readonly unbalance: {
     readonly negativeSequenceCurrentPercent: BeforeAfter;
@@ -369,12 +372,7 @@ export interface MeteringReadings {
   /** `origin` (the supply's terminals, where the service cable starts) or the name of the board at whose incomer it is measured. */
   readonly point: string;
   readonly lines: readonly LineComparison[];
-  readonly powerFactor: {
-    readonly effective: BeforeAfter | null;
-    readonly vector: BeforeAfter;
-    readonly arithmetic: BeforeAfter;
-    readonly positiveSequence: BeforeAfter | null;
-  };
+  readonly powerFactor: PowerFactorsBeforeAfter;
   /** Active and reactive power through the point (load convention, + lagging), kW / kvar. */
   readonly kW: BeforeAfter;
   readonly kvar: BeforeAfter;

@@ -233,3 +233,11 @@ export const comparisonWording = {
       .map((c) => (c.code === 'unbalance-worse' ? `raises |I2|/|I1| from ${f1(c.before)} % to ${f1(c.after)} %` : `raises the neutral current from ${f1(c.before)} A to ${f1(c.after)} A`))
       .join(' and ')}`,
 };
+
+/** Where a target is measured, in words: the origin of the installation, or a board's incomer (see meteringPoint.ts). */
+export const meteringPointWords = (point: string): string =>
+  point === 'origin' ? "the origin of the installation (the supply's terminals, where the service cable starts)" : `the incomer of ${point}`;
+
+/** A target measured away from the bank: its controller must read there, or hold a band set for where it reads. */
+export const meteringWarning = (point: string, board: string): string =>
+  `the target is measured at ${meteringPointWords(point)}, not at ${board}: a controller reading a CT at ${board} holds its band there, so put its CT where the target is measured, or set its band for the PF at ${board} that gives the target there (the PF reached at ${board} is in the lines table)`;

@@ -4,6 +4,7 @@
  * study's plain result, so the study can grow without touching the report.
  */
 import type { CorrectionReport } from '../../correction/correctionResult.js';
+import { meteringPointWords } from '../../correction/correctionWording.js';
 import { fixed } from '../svgText.js';
 import { renderPhasorDiagram } from '../renderPhasorDiagram.js';
 import { renderCurrentTriangles } from '../renderCurrentTriangles.js';
@@ -54,6 +55,19 @@ function equipmentTable(report: CorrectionReport): ReportBlock | null {
   };
 }
 
+/** Where the target is measured, when that is not the equipment's board, and the PF reached there. */
+function meteringFacts(report: CorrectionReport): [string, string][] {
+  const m = report.verification.metering;
+  if (!m) return [];
+  const where = meteringPointWords(m.point);
+  const lowest = (phases: typeof m.after.phases) => Math.min(...phases.map((p) => p.pf ?? 1));
+  return [
+    ['Target measured at', where],
+    ['Power factor there, vector', `${fixed(m.powerFactor.vector.before, 3)} → ${fixed(m.powerFactor.vector.after, 3)}`],
+    ['Lowest line power factor there', `${fixed(lowest(m.before.phases), 3)} → ${fixed(lowest(m.after.phases), 3)}`],
+  ];
+}
+
 export function correctionSection(report: CorrectionReport): ReportSection {
   const v = report.verification;
   // Lines as the board file names them (L1 or A).
@@ -65,6 +79,7 @@ export function correctionSection(report: CorrectionReport): ReportSection {
       items: [
         ['Arrangement', ARRANGEMENT_WORDS[report.arrangement] ?? report.arrangement],
         ['Outcome', report.status.replace(/-/g, ' ')],
+        ...meteringFacts(report),
         ['Power factor, vector', `${fixed(v.powerFactor.vector.before, 3)} → ${fixed(v.powerFactor.vector.after, 3)}`],
         ...(v.powerFactor.effective ? ([['Power factor, effective (IEEE 1459)', `${fixed(v.powerFactor.effective.before, 3)} → ${fixed(v.powerFactor.effective.after, 3)}`]] as [string, string][]) : []),
         ...(v.neutralCurrentA ? ([['Neutral current', `${fixed(v.neutralCurrentA.before, 1)} → ${fixed(v.neutralCurrentA.after, 1)} A`]] as [string, string][]) : []),
