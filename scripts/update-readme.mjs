@@ -14,6 +14,7 @@ const blocks = [
   ['installation-correct-output', ['correct', 'examples/tannery-lane-works.yaml', '--board', 'Press shop', '--arrangement', 'star-bank']],
   ['installation-metered-output', ['correct', 'examples/tannery-lane-works.yaml', '--board', 'Press shop', '--measured-at', 'origin', '--pf', '0.97', '--arrangement', 'star-bank']],
   ['harmonics-output', ['harmonics', 'examples/mill-street-offices.yaml']],
+  ['harmonics-installation-output', ['harmonics', 'examples/harrow-yard-studios.yaml']],
   ['correct-detuned-output', ['correct', 'examples/quayside-print-works.yaml']],
   ['check-output', ['check', 'examples/riverside-cold-store.yaml', 'examples/hand-figures/riverside-cold-store.yaml']],
   ['rebalance-output', ['rebalance', 'examples/larkspur-court-flats.yaml']],

@@ -10,7 +10,7 @@ describe('hand figures on an installation file', () => {
     const r = runTrivar(['report', works, '--hand-figures', figures]);
     expect(r.code).toBe(2);
     expect(r.stdout).toBe('');
-    expect(r.stderr).toContain('--hand-figures: a hand calculation is checked on one board and its own loads');
+    expect(r.stderr).toContain('--hand-figures: a hand calculation is checked on a single board file, one board and its own loads');
     expect(r.stderr).toContain('Check one board at a time');
     expect(r.stderr).toContain('trivar check <that file> <hand figures>');
   });
@@ -19,7 +19,7 @@ describe('hand figures on an installation file', () => {
     const r = runTrivar(['check', works, figures]);
     expect(r.code).toBe(3);
     expect(r.stdout).toBe('');
-    expect(r.stderr).toContain(`${works}: a hand calculation is checked on one board`);
+    expect(r.stderr).toContain(`${works}: a hand calculation is checked on a single board file`);
     expect(r.stderr).toContain('write that board as a board file of its own');
   });
 });

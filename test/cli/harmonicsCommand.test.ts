@@ -1,6 +1,6 @@
 import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
-import { readBoardText, studyHarmonics } from '@trivar/core';
+import { readBoardText, studyHarmonics, studyInstallationHarmonics } from '@trivar/core';
 import { ROOT, runTrivar } from './runTrivar.js';
 
 const offices = 'examples/mill-street-offices.yaml';
@@ -32,6 +32,63 @@ describe('trivar harmonics (built binary)', () => {
     const r = runTrivar(['harmonics', '-'], board);
     expect(r.code).toBe(3);
     expect(r.stderr).toContain('loads[3].spectrum[0].order');
+    expect(r.stderr).not.toMatch(/\bat .*\.js:\d+/);
+  });
+});
+
+describe('trivar harmonics on an installation (built binary)', () => {
+  const yard = 'examples/harrow-yard-studios.yaml';
+  it('one summary row per board, the supply intake, the bank seen from its board, warnings naming their board', () => {
+    const r = runTrivar(['harmonics', yard]);
+    expect(r.stderr).toBe('');
+    expect(r.code).toBe(0);
+    const table = r.stdout.slice(r.stdout.indexOf('Boards ('), r.stdout.indexOf('Current distortion at the supply intake'));
+    for (const board of ['Main switchboard', '└ Workshop', '└ Studios ground', '  └ Studios upper']) expect(table).toContain(board);
+    // The shared riser neutral: 178 A of a 110 A rating, almost all of it triplen current.
+    expect(table).toMatch(/└ Studios ground .* 178\.3 +177\.5 +162 OVER/);
+    expect(r.stdout).toContain('Resonance with the supply seen from Workshop (S_sc');
+    expect(r.stdout).toContain('Capacitor duty with harmonics, bank on Workshop');
+    expect(r.stdout).toContain('! Studios ground: the neutral carries 178.3 A rms');
+    expect(r.stdout).toContain('! supply intake: line A: TDD');
+    expect(r.stdout).toContain('--board "<name>"');
+    expect(r.stdout).not.toContain('━━');
+    expect(r.stdout).toContain('licensed professional');
+  });
+
+  it('--board prints that board’s full figures; --all-boards every board’s', () => {
+    const one = runTrivar(['harmonics', yard, '--board', 'Studios upper']);
+    expect(one.code).toBe(0);
+    expect(one.stdout).toContain('━━ Studios upper (fed from Studios ground) ━━');
+    expect(one.stdout).toContain('Currents in the feeder into Studios upper');
+    expect(one.stdout).toContain('Neutral of the feeder into Studios upper');
+    expect(one.stdout.match(/━━ /g)).toHaveLength(1);
+    const all = runTrivar(['harmonics', yard, '--all-boards']);
+    expect(all.stdout.match(/━━ /g)).toHaveLength(4);
+  });
+
+  it('--json is the library report', () => {
+    const r = runTrivar(['harmonics', yard, '--json']);
+    expect(r.code).toBe(0);
+    const expected = studyInstallationHarmonics(readBoardText(readFileSync(`${ROOT}${yard}`, 'utf8')));
+    expect(JSON.parse(r.stdout)).toEqual(JSON.parse(JSON.stringify(expected)));
+  });
+
+  it('an unknown --board, and --board on a board file, exit 3 with the boards there are', () => {
+    const unknown = runTrivar(['harmonics', yard, '--board', 'Loft']);
+    expect(unknown.code).toBe(3);
+    expect(unknown.stderr).toContain('"Main switchboard", "Workshop"');
+    expect(unknown.stderr).toContain('"Loft"');
+    const onBoard = runTrivar(['harmonics', offices, '--all-boards']);
+    expect(onBoard.code).toBe(3);
+    expect(onBoard.stderr).toContain('apply to installation files');
+  });
+
+  it('a bank on a board the file does not have exits 3 naming harmonics.banks[0].board', () => {
+    const text = readFileSync(`${ROOT}${yard}`, 'utf8').replace('{ board: Workshop,', '{ board: Workshops,');
+    const r = runTrivar(['harmonics', '-'], text);
+    expect(r.code).toBe(3);
+    expect(r.stderr).toContain('harmonics.banks[0].board');
+    expect(r.stderr).toContain('"Workshops"');
     expect(r.stderr).not.toMatch(/\bat .*\.js:\d+/);
   });
 });

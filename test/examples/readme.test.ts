@@ -46,6 +46,11 @@ describe('README', () => {
     const shown = block.replace(/^\s*```text\n/, '').replace(/```\s*$/, '');
     expect(shown.trimEnd()).toBe(runTrivar(['harmonics', 'examples/mill-street-offices.yaml']).stdout.trimEnd());
   });
+  it('installation harmonics block matches `trivar harmonics examples/harrow-yard-studios.yaml`', () => {
+    const block = readme.split('<!-- harmonics-installation-output:start -->')[1]!.split('<!-- harmonics-installation-output:end -->')[0]!;
+    const shown = block.replace(/^\s*```text\n/, '').replace(/```\s*$/, '');
+    expect(shown.trimEnd()).toBe(runTrivar(['harmonics', 'examples/harrow-yard-studios.yaml']).stdout.trimEnd());
+  });
   it('detuned correction output block matches `trivar correct examples/quayside-print-works.yaml`', () => {
     const block = readme.split('<!-- correct-detuned-output:start -->')[1]!.split('<!-- correct-detuned-output:end -->')[0]!;
     const shown = block.replace(/^\s*```text\n/, '').replace(/```\s*$/, '');

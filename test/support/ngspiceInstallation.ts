@@ -8,8 +8,14 @@
  * ammeter — a conductor of zero impedance is an ammeter alone, so boards core
  * merges into one node stay separate nodes here; every load branch an ammeter and
  * its element (alternately series R + jX and parallel G ‖ jB).
+ *
+ * At a harmonic order (`harmonic`), the same parts at the supply frequency, so ngspice scales
+ * every reactance itself when run at h·f: the EMFs of order h; each linear load branch from its
+ * solved fundamental admittance in the form the study uses (series or parallel R, L, C); a
+ * detuned step as its series L and C; a non-linear load branch as an AC current source of
+ * |I1|·(percent/100) at h·∠I1 + the spectrum angle, worked out here from the fundamental.
  */
-import type { ComplexValue, Installation, InstallationSolution } from '@trivar/core';
+import type { ComplexValue, HarmonicModel, Installation, InstallationSolution } from '@trivar/core';
 import { cAbs, cInv, cSub } from './complexMath.js';
 import { seriesElements, parallelElements, type Probe } from './ngspice.js';
 
@@ -17,7 +23,21 @@ const num = (x: number) => x.toExponential(16);
 const isZero = (z: ComplexValue) => z.re === 0 && z.im === 0;
 const lower = (p: string) => p.toLowerCase();
 
-export function buildInstallationNetlist(installation: Installation, solution: InstallationSolution): { netlist: string; probes: Probe[] } {
+/** What a netlist at harmonic order h needs besides the installation: the order, its EMFs, the fundamental and the models. */
+export interface HarmonicOrderParts {
+  readonly order: number;
+  /** Per phase, the supply EMF of order h (the background distortion, or zero). */
+  readonly emf: readonly ComplexValue[];
+  readonly fundamental: InstallationSolution;
+  readonly models: readonly HarmonicModel[];
+}
+
+const polar = (m: number, a: number): ComplexValue => ({ re: m * Math.cos(a), im: m * Math.sin(a) });
+
+/**
+ * @param solution the solution whose figures the probes carry (at order h when `harmonic` is given)
+ */
+export function buildInstallationNetlist(installation: Installation, solution: InstallationSolution, harmonic?: HarmonicOrderParts): { netlist: string; probes: Probe[] } {
   const main = installation.main;
   const omega = 2 * Math.PI * main.frequencyHz;
   const lines = [`* ${installation.name}: ${installation.subBoards.length + 1} boards`];
@@ -41,7 +61,8 @@ export function buildInstallationNetlist(installation: Installation, solution: I
     let at: string;
     if (k === corner) at = '0';
     else {
-      const e = corner >= 0 ? cSub(main.emf[k]!, main.emf[corner]!) : main.emf[k]!;
+      const emf = harmonic?.emf ?? main.emf;
+      const e = corner >= 0 ? cSub(emf[k]!, emf[corner]!) : emf[k]!;
       lines.push(`VE_${p} s_${p} ${star} DC 0 AC ${num(cAbs(e))} ${num((Math.atan2(e.im, e.re) * 180) / Math.PI)}`);
       const winding = main.sourceImpedances?.[k] ?? main.sourceImpedance;
       lines.push(...series(`W_${p}`, `s_${p}`, `t_${p}`, winding));
@@ -84,12 +105,6 @@ export function buildInstallationNetlist(installation: Installation, solution: I
         const name = `L${b}_${li}_${bi}`;
         const mid = `m${b}_${li}_${bi}`;
         lines.push(`VI${name} ${nodeOf(br.from)} ${mid} DC 0`);
-        // A branch of zero admittance (an empty branch of a compensator) is an open circuit: a resistor far
-        // above any impedance in the netlist keeps its ammeter's node from floating (current ~1e-16 A).
-        const open = state.admittance.re === 0 && state.admittance.im === 0;
-        const z = cInv(state.admittance);
-        if (open) lines.push(`R${name} ${mid} ${nodeOf(br.to)} 1e18`);
-        else lines.push(...((li + bi) % 2 === 0 ? seriesElements(name, mid, nodeOf(br.to), z, omega) : parallelElements(name, mid, nodeOf(br.to), state.admittance, omega)));
         probes.push({ vector: `i(vi${name.toLowerCase()})`, label: `${s.board.name} load ${load.name} ${br.from}→${br.to} current`, kind: 'current', core: state.current });
         for (const t of [br.from, br.to]) {
           if (t.startsWith('star:') && !stars.has(`${b}:${t}`)) {
@@ -98,10 +113,41 @@ export function buildInstallationNetlist(installation: Installation, solution: I
           }
           if (t === 'N') barUsed = true;
         }
+        if (harmonic) {
+          lines.push(...harmonicBranch(harmonic, b, li, bi, name, mid, nodeOf(br.to), omega));
+          return;
+        }
+        // A branch of zero admittance (an empty branch of a compensator) is an open circuit: a resistor far
+        // above any impedance in the netlist keeps its ammeter's node from floating (current ~1e-16 A).
+        const open = state.admittance.re === 0 && state.admittance.im === 0;
+        const z = cInv(state.admittance);
+        if (open) lines.push(`R${name} ${mid} ${nodeOf(br.to)} 1e18`);
+        else lines.push(...((li + bi) % 2 === 0 ? seriesElements(name, mid, nodeOf(br.to), z, omega) : parallelElements(name, mid, nodeOf(br.to), state.admittance, omega)));
       }),
     );
     const feedsNeutral = main.hasNeutral && (b === 0 ? !main.neutralOpen : !installation.subBoards[b - 1]!.feeder.neutralOpen);
     if (main.hasNeutral && (barUsed || feedsNeutral)) probes.push({ vector: `v(${bar(b)})`, label: `${s.board.name} neutral bar voltage`, kind: 'voltage', core: voltage(b, topo.neutralNode) });
   });
   return { netlist: lines.join('\n'), probes };
+}
+
+/** One load branch at order h from its fundamental state: a current source, a detuned L–C, or linear R, L, C in the study's form. */
+function harmonicBranch(parts: HarmonicOrderParts, b: number, l: number, k: number, name: string, from: string, to: string, omega: number): string[] {
+  const state = parts.fundamental.boards[b]!.branches[l]![k]!;
+  const behaviour = parts.models[b]!.loads[l]!;
+  const y = state.admittance;
+  if (behaviour.kind === 'non-linear') {
+    const content = behaviour.spectrum.find((o) => o.order === parts.order);
+    if (!content) return [`R${name} ${from} ${to} 1e18`];
+    const i1 = state.current;
+    const j = polar(cAbs(i1) * content.fraction, parts.order * Math.atan2(i1.im, i1.re) + content.angleRad);
+    // A resistor far above any impedance here keeps the ammeter's node from floating.
+    return [`I${name} ${from} ${to} AC ${num(cAbs(j))} ${num((Math.atan2(j.im, j.re) * 180) / Math.PI)}`, `R${name} ${from} ${to} 1e18`];
+  }
+  if (y.re === 0 && y.im === 0) return [`R${name} ${from} ${to} 1e18`];
+  if (behaviour.kind === 'detuned') {
+    const bC = y.im * (1 - behaviour.p);
+    return [`LD${name} ${from} d${name} ${num(behaviour.p / (bC * omega))}`, `CD${name} d${name} ${to} ${num(bC / omega)}`];
+  }
+  return behaviour.form === 'series' ? seriesElements(name, from, to, cInv(y), omega) : parallelElements(name, from, to, y, omega);
 }

@@ -68,10 +68,13 @@ by row and column)`;
 const HARMONICS_EXAMPLES = `
 Spectra go on the loads (spectrum: switch-mode | [{ order, percent, angleDeg }]); background distortion,
 an installed bank and the IEEE 519 check go under "harmonics:" in the board file (see trivar schema).
+On an installation file every board is solved at once (the feeders and their neutrals at each order);
+banks go under "harmonics: banks:" with the board each is on, and the scan is seen from that board.
 
 Examples:
   trivar harmonics examples/mill-street-offices.yaml
   trivar harmonics examples/mill-street-offices.yaml --json > harmonics.json
+  trivar harmonics examples/harrow-yard-studios.yaml --board "Studios ground"
 
 Exit codes: as for solve`;
 
@@ -246,10 +249,12 @@ export function createProgram(io: CliIo, outcome: RunOutcome = { exitCode: EXIT.
   program
     .command('harmonics')
     .description('harmonic study: line and neutral rms with harmonics, THD, resonance scan of every bank state, capacitor duty')
-    .argument('<board>', 'board file (YAML or JSON), or - for standard input')
+    .argument('<board>', 'board or installation file (YAML or JSON), or - for standard input')
     .option('--json', 'print the full report (with the scan data) as JSON instead of the text report')
+    .option('--board <name>', 'installation files: also print the full figures of this board (repeatable)', (v: string, prev: string[] = []) => [...prev, v])
+    .option('--all-boards', 'installation files: print the full figures of every board')
     .addHelpText('after', HARMONICS_EXAMPLES)
-    .action(async (board: string, opts: { json?: boolean }) => {
+    .action(async (board: string, opts: { json?: boolean; board?: string[]; allBoards?: boolean }) => {
       const { runHarmonics } = await import('./commands/harmonics.js');
       await runHarmonics(board, opts, io);
     });

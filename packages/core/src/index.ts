@@ -160,8 +160,8 @@ export { renderTimeChart, renderDurationChart } from './render/profileCharts.js'
 
 // Harmonics
 export type * from './harmonics/harmonicsResult.js';
-export type { SpectrumSpec, SpectrumEntrySpec, LinearForm, HarmonicsSectionSpec, InstalledBankSpec, HarmonicLoadSpec, HarmonicsBoardSpec } from './harmonics/harmonicsSpec.js';
-export { harmonicsSectionSchema, MAX_ORDER } from './harmonics/harmonicsSpec.js';
+export type { SpectrumSpec, SpectrumEntrySpec, LinearForm, HarmonicsSectionSpec, InstalledBankSpec, HarmonicLoadSpec, HarmonicsBoardSpec, InstallationBankSpec, InstallationHarmonicsSectionSpec } from './harmonics/harmonicsSpec.js';
+export { harmonicsSectionSchema, installationHarmonicsSectionSchema, MAX_ORDER } from './harmonics/harmonicsSpec.js';
 export type { SpectrumKind, TypicalSpectrum } from './harmonics/typicalSpectra.js';
 export { TYPICAL_SPECTRA, SPECTRUM_KINDS } from './harmonics/typicalSpectra.js';
 export type { HarmonicModel, LoadBehaviour, OrderContent, BankModel } from './harmonics/harmonicModel.js';
@@ -171,7 +171,14 @@ export type { OrderSolution } from './harmonics/readHarmonics.js';
 export type { HarmonicsOptions } from './harmonics/studyHarmonics.js';
 export { studyBoardHarmonics, analyseHarmonics, solveHarmonicOrders, withSteps } from './harmonics/studyHarmonics.js';
 export { studyHarmonics } from './boardFile/studyHarmonics.js';
-export type { ScanEvaluator } from './harmonics/scanResonance.js';
+export { studyInstallationHarmonics } from './boardFile/studyInstallationHarmonics.js';
+export type { HarmonicsInstallationSpec, InstallationHarmonicModel } from './harmonics/studyInstallationHarmonics.js';
+export { studyInstallationHarmonicsSpec, resolveInstallationHarmonics } from './harmonics/studyInstallationHarmonics.js';
+export { solveInstallationAtOrder, installationAtOrder } from './harmonics/installationAtOrder.js';
+export { createInstallationScanEvaluator } from './harmonics/scanEvaluator.js';
+export type { FixedInstallationInput } from './network/solveFixedInstallation.js';
+export { solveFixedInstallation } from './network/solveFixedInstallation.js';
+export type { ScanEvaluator } from './harmonics/scanEvaluator.js';
 export { scanResonance, createScanEvaluator, scanGrid, stepCombinations } from './harmonics/scanResonance.js';
 export { DUTY_LIMITS, dutyFigures } from './harmonics/capacitorDuty.js';
 export { dutyConditions, withCapacitanceFactor, withLoadsOff, conditionWords } from './harmonics/dutyConditions.js';

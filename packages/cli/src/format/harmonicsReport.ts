@@ -1,10 +1,11 @@
 /** HarmonicsReport → the human-readable report of `trivar harmonics`. */
 import { conditionWords, labelIn, type DistortionReading, type HarmonicsReport, type ResonanceScan, type CapacitorDuty, type TddCheck, type NeutralCheck } from '@trivar/core';
-import { fixed, renderTable, section } from './textTable.js';
+import { fixed, renderTable, section, textWidth } from './textTable.js';
+import { REPORT_WIDTH } from './wrapText.js';
 import { wrapText } from './wrapText.js';
 
 /** A prose line of the report, wrapped to the report width under its own indent. */
-const prose = (text: string, first = '  ', rest = '    ') => wrapText(text, first, rest);
+export const prose = (text: string, first = '  ', rest = '    ') => wrapText(text, first, rest);
 
 /** Orders shown as columns of the current table; the JSON has them all. */
 const MAX_ORDER_COLUMNS = 8;
@@ -16,10 +17,13 @@ const orderPercent = (d: DistortionReading, h: number) => {
 };
 
 /** A phase, pair or branch as the board file names it (L1-N or A-N). */
-type Label = (term: string) => string;
-const labeller = (r: HarmonicsReport): Label => (term) => labelIn(r.phaseNames, term);
+export type Label = (term: string) => string;
+export const labeller = (r: Pick<HarmonicsReport, 'phaseNames'>): Label => (term) => labelIn(r.phaseNames, term);
 
-function currentTable(r: HarmonicsReport): string {
+/** What the current and voltage tables read: one board's lines, pairs and neutral, the orders solved and the naming. */
+export type BoardReadings = Pick<HarmonicsReport, 'lines' | 'lineToLine' | 'neutral' | 'orders' | 'phaseNames'>;
+
+export function currentTable(r: BoardReadings): string {
   const label = labeller(r);
   const shown = r.orders.slice(0, MAX_ORDER_COLUMNS);
   const rows = r.lines.map((l) => [label(l.phase), fixed(l.current.rms, 1), fixed(l.current.fundamental, 1), thd(l.current), ...shown.map((h) => orderPercent(l.current, h))]);
@@ -37,7 +41,7 @@ function currentTable(r: HarmonicsReport): string {
   );
 }
 
-function voltageTable(r: HarmonicsReport): string {
+export function voltageTable(r: BoardReadings): string {
   const label = labeller(r);
   const rows = [
     ...r.lines.map((l) => [label(`${l.phase}-N`), fixed(l.voltage.rms, 1), thd(l.voltage), largestOrder(l.voltage), l.truePf === null ? '-' : fixed(l.truePf, 3), l.displacementPf === null ? '-' : fixed(l.displacementPf, 3)]),
@@ -55,7 +59,7 @@ function largestOrder(d: DistortionReading): string {
   return `h${o.order} ${fixed(o.percentOfFundamental, 1)} %`;
 }
 
-function neutralLines(n: NeutralCheck): string[] {
+export function neutralLines(n: NeutralCheck): string[] {
   const lines = [
     prose(`${fixed(n.current.rms, 1)} A rms, of which ${fixed(n.current.fundamental, 1)} A at the fundamental; ${n.ratioToPhase === null ? '' : `${fixed(n.ratioToPhase, 2)} × the largest line current; `}triplen orders ${n.triplenSharePercent === null ? '-' : fixed(n.triplenSharePercent, 0)} % of its heating (rms²)`),
   ];
@@ -65,20 +69,38 @@ function neutralLines(n: NeutralCheck): string[] {
   return lines;
 }
 
-function tddLines(t: TddCheck, label: Label): string[] {
+export function tddLines(t: TddCheck, label: Label): string[] {
   const head = prose(`I_sc/I_L = ${fixed(t.shortCircuitRatio, 1)} (${t.shortCircuitRatioFrom}), I_L = ${fixed(t.demandCurrentA, 1)} A (${t.demandCurrentFrom}); table row ${t.tableRow}, TDD limit ${t.tddLimitPercent} %`);
-  const table = renderTable(
-    [{ header: 'line', align: 'left' }, { header: 'TDD %' }, { header: 'limit %' }, { header: 'orders over their limit', align: 'left' }, { header: 'verdict', align: 'left' }],
-    t.lines.map((l) => {
-      const over = l.orders.filter((o) => !o.ok).map((o) => `h${o.order} ${fixed(o.percentOfDemand, 1)}/${o.limitPercent}`);
-      return [label(l.phase), fixed(l.tddPercent, 1), fixed(t.tddLimitPercent, 1), over.join(', ') || '-', l.ok ? 'within' : 'EXCEEDS'];
-    }),
-  );
-  return [head, table, prose(`source: ${t.source}`)];
+  const columns = [{ header: 'line', align: 'left' as const }, { header: 'TDD %' }, { header: 'limit %' }, { header: 'orders over their limit', align: 'left' as const }, { header: 'verdict', align: 'left' as const }];
+  const rows = t.lines.map((l) => {
+    const over = l.orders.filter((o) => !o.ok).map((o) => `h${o.order} ${fixed(o.percentOfDemand, 1)}/${o.limitPercent}`);
+    return [label(l.phase), fixed(l.tddPercent, 1), fixed(t.tddLimitPercent, 1), over.join(', ') || '-', l.ok ? 'within' : 'EXCEEDS'];
+  });
+  return [head, fitOrdersColumn(columns, rows), prose(`source: ${t.source}`)];
 }
 
+/** Many orders over their limit make a long cell: it continues on rows of its own rather than widen the table. */
+function fitOrdersColumn(columns: Parameters<typeof renderTable>[0], rows: string[][]): string {
+  const table = renderTable(columns, rows);
+  const excess = Math.max(...table.split('\n').map(textWidth)) - REPORT_WIDTH;
+  if (excess <= 0) return table;
+  const room = Math.max(...rows.map((r) => textWidth(r[3]!))) - excess;
+  const split: string[][] = [];
+  for (const row of rows) {
+    const lines: string[] = [];
+    for (const part of row[3]!.split(', ')) {
+      const last = lines.length - 1;
+      if (last >= 0 && textWidth(`${lines[last]}, ${part}`) < room) lines[last] = `${lines[last]}, ${part}`;
+      else lines.push(part);
+    }
+    lines.forEach((text, k) => split.push(k === 0 ? [...row.slice(0, 3), k < lines.length - 1 ? `${text},` : text, row[4]!] : ['', '', '', k < lines.length - 1 ? `${text},` : text, '']));
+  }
+  return renderTable(columns, split);
+}
+
+
 /** Bank states with the same output resonate alike: one row per output, listing the states. */
-function scanTable(s: ResonanceScan, label: Label): string {
+export function scanTable(s: ResonanceScan, label: Label): string {
   const groups = new Map<string, { labels: string[]; c: ResonanceScan['combinations'][number] }>();
   for (const c of s.combinations) {
     const key = fixed(c.capacitorKvar, 2);
@@ -111,7 +133,7 @@ function scanTable(s: ResonanceScan, label: Label): string {
   );
 }
 
-function dutyLines(d: CapacitorDuty, label: Label): string[] {
+export function dutyLines(d: CapacitorDuty, label: Label): string[] {
   const lim = d.limits;
   const w = d.worst.figures;
   const cell = (x: number, limit: number | null) => `${fixed(x, 2)}${limit === null ? '' : ` / ${limit}`}`;
@@ -131,6 +153,23 @@ function dutyLines(d: CapacitorDuty, label: Label): string[] {
     prose(`highest fundamental voltage across a capacitor: ${fixed(d.highestCapacitorVoltageV, 1)} V (${fixed(d.highestCapacitorVoltageV / d.ratedV, 3)} × rated)`),
     prose(`limits: ${d.limitsSource}`),
   ];
+}
+
+/** Loads grouped by the spectrum they use, one line per spectrum. */
+export function spectraLines(spectra: readonly { readonly load: string; readonly spectrum: string; readonly source: string }[]): string[] {
+  const seen = new Map<string, string[]>();
+  for (const s of spectra) seen.set(`${s.spectrum}: ${s.source}`, [...(seen.get(`${s.spectrum}: ${s.source}`) ?? []), s.load]);
+  return [...seen].map(([what, loads]) => prose(`${what} — ${loads.join(', ')}`));
+}
+
+/** The scan's grid and what it checks, in one line. */
+export function scanLine(s: ResonanceScan, label: Label): string {
+  return prose(`scanned h = ${s.orders[0]} … ${s.orders.at(-1)} (${s.orders.length} points, pairs ${s.pairs.map(label).join(' ')}); checked against ${s.checkedOrdersFrom}: ${s.checkedOrders.join(', ')}`);
+}
+
+/** The resonance section's title: the short-circuit power at the board, or an ideal source. */
+export function resonanceTitle(s: ResonanceScan, where = ''): string {
+  return `Resonance with the supply${where}${s.shortCircuitKVA === null ? ' (ideal source: none possible)' : ` (S_sc ${fixed(s.shortCircuitKVA, 0)} kVA)`}`;
 }
 
 export function renderHarmonicsReport(r: HarmonicsReport): string {
@@ -155,18 +194,16 @@ export function renderHarmonicsReport(r: HarmonicsReport): string {
     out.push(section('Current distortion at the feed (IEEE 519)'));
     out.push(...tddLines(r.tdd, labeller(r)));
   }
-  out.push(section(`Resonance with the supply${r.scan.shortCircuitKVA === null ? ' (ideal source: none possible)' : ` (S_sc ${fixed(r.scan.shortCircuitKVA, 0)} kVA)`}`));
+  out.push(section(resonanceTitle(r.scan)));
   out.push(scanTable(r.scan, labeller(r)));
-  out.push(prose(`scanned h = ${r.scan.orders[0]} … ${r.scan.orders.at(-1)} (${r.scan.orders.length} points, pairs ${r.scan.pairs.map(labeller(r)).join(' ')}); checked against ${r.scan.checkedOrdersFrom}: ${r.scan.checkedOrders.join(', ')}`));
+  out.push(scanLine(r.scan, labeller(r)));
   if (r.capacitorDuty) {
     out.push(section('Capacitor duty with harmonics (every bank state)'));
     out.push(...dutyLines(r.capacitorDuty, labeller(r)));
   }
   if (r.spectra.length) {
     out.push(section('Spectra used'));
-    const seen = new Map<string, string[]>();
-    for (const s of r.spectra) seen.set(`${s.spectrum}: ${s.source}`, [...(seen.get(`${s.spectrum}: ${s.source}`) ?? []), s.load]);
-    for (const [what, loads] of seen) out.push(prose(`${what} — ${loads.join(', ')}`));
+    out.push(...spectraLines(r.spectra));
   }
   out.push(section('Assumptions'));
   out.push(...r.assumptions.map((a) => prose(a, '  - ')));

@@ -8,7 +8,7 @@ import * as z from 'zod';
 import { boardSchemaWith } from '../board/boardSchema.js';
 import { installationSchemaWith } from '../board/installationSchema.js';
 import { correctionSpecSchema } from '../correction/correctionSpec.js';
-import { harmonicLoadFields, harmonicsSectionSchema } from '../harmonics/harmonicsSpec.js';
+import { harmonicLoadFields, harmonicsSectionSchema, installationHarmonicsSectionSchema } from '../harmonics/harmonicsSpec.js';
 import { profileSpecSchema } from '../profile/profileSpec.js';
 import { rebalanceSpecSchema } from '../rebalance/rebalanceSpec.js';
 
@@ -32,6 +32,7 @@ export const installationSchema = installationSchemaWith({
       .extend({ board: z.string().min(1).optional().describe('the board the bank goes on; default the main board') })
       .optional()
       .describe(CORRECTION_WORDS),
+    harmonics: installationHarmonicsSectionSchema.optional(),
     rebalance: rebalanceSpecSchema.optional(),
   },
 });

@@ -8,13 +8,24 @@ import { installationRulesWith } from '../board/installationRules.js';
 import { isInstallationInput, oneBoardInstallation, validateInstallationWith, type InstallationFileChecks, type InstallationValidationOf } from '../board/validateInstallationWith.js';
 import { installationSchema, type BoardSpec, type InstallationSpec } from './boardFileSchema.js';
 import { BOARD_FILE_CHECKS, STUDY_BOARD_RULES } from './validateBoard.js';
+import type { HarmonicsSectionSpec, InstallationHarmonicsSectionSpec } from '../harmonics/harmonicsSpec.js';
+
+/** A board file's `harmonics:` section as the installation's: its bank on the one board. */
+function harmonicsOfBoard(name: string, section: HarmonicsSectionSpec): InstallationHarmonicsSectionSpec {
+  const { bank, ...rest } = section;
+  return bank ? { ...rest, banks: [{ ...bank, board: name }] } : rest;
+}
 
 const INSTALLATION_FILE_CHECKS: InstallationFileChecks<InstallationSpec, BoardSpec> = {
   schema: installationSchema,
   rules: installationRulesWith<InstallationSpec>([...BOARD_RULES, ...STUDY_BOARD_RULES]),
   board: BOARD_FILE_CHECKS,
-  // The board's correction study carries over; the other sections are one-board studies.
-  boardAsInstallation: (board) => ({ ...oneBoardInstallation(board), ...(board.correction ? { correction: board.correction } : {}) }),
+  // The board's correction and harmonic studies carry over (its bank on its one board); the other sections are one-board studies.
+  boardAsInstallation: (board) => ({
+    ...oneBoardInstallation(board),
+    ...(board.correction ? { correction: board.correction } : {}),
+    ...(board.harmonics ? { harmonics: harmonicsOfBoard(board.name ?? 'board', board.harmonics) } : {}),
+  }),
 };
 
 export type InstallationValidation = InstallationValidationOf<InstallationSpec>;

@@ -6,7 +6,7 @@
  * highest voltage the bank sees on a board whose loads draw lagging current (the bank's own rise
  * through the source impedance, no load drop), with background distortion undamped by any load.
  */
-import type { Board, BoardLoad } from '../board/boardModel.js';
+import type { Board, BoardLoad, Installation } from '../board/boardModel.js';
 import type { CapacitanceTolerance, DutyCondition } from './harmonicsResult.js';
 import type { HarmonicModel, LoadBehaviour } from './harmonicModel.js';
 
@@ -18,8 +18,16 @@ export function dutyConditions(tolerance: CapacitanceTolerance): DutyCondition[]
 
 /** Every load of the board off (what a study added, such as the bank, stays), as `withSteps` switches a step off. */
 export function withLoadsOff(board: Board): Board {
-  return { ...board, loads: board.loads.map((l): BoardLoad => (l.origin === 'board' ? { ...l, branches: l.branches.map((b) => ({ ...b, sNominal: { re: 0, im: 0 } })) } : l)) };
+  return { ...board, loads: loadsOff(board.loads) };
 }
+
+/** Every load of every board off (what a study added stays). */
+export function withInstallationLoadsOff(installation: Installation): Installation {
+  return { ...installation, main: withLoadsOff(installation.main), subBoards: installation.subBoards.map((sb) => ({ ...sb, loads: loadsOff(sb.loads) })) };
+}
+
+const loadsOff = (loads: readonly BoardLoad[]): BoardLoad[] =>
+  loads.map((l): BoardLoad => (l.origin === 'board' ? { ...l, branches: l.branches.map((b) => ({ ...b, sNominal: { re: 0, im: 0 } })) } : l));
 
 /**
  * The bank's units at `factor` × their nominal capacitance. A plain part's susceptance scales by

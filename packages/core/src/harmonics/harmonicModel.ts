@@ -130,7 +130,7 @@ export function addInstalledBank(board: Board, bank: InstalledBankSpec): { board
  * Resolves the harmonic behaviour of every load of `board` (normalised from
  * `spec`, the bank already added when there is one) and the study settings.
  */
-export function resolveHarmonicModel(spec: HarmonicsBoardSpec, board: Board, bank: BankModel | null): HarmonicModel {
+export function resolveHarmonicModel(spec: Pick<HarmonicsBoardSpec, 'loads' | 'harmonics'>, board: Board, bank: BankModel | null): HarmonicModel {
   const section: HarmonicsSectionSpec = spec.harmonics ?? {};
   const defaultForm = section.linearForm ?? HARMONICS_DEFAULTS.linearForm;
   const bankLoads = new Set(bank ? [...(bank.fixedLoad === null ? [] : [bank.fixedLoad]), ...bank.stepLoads] : []);

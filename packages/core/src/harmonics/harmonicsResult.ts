@@ -231,3 +231,55 @@ export interface HarmonicsReport {
   readonly warnings: readonly HarmonicsWarning[];
   readonly cautions: readonly string[];
 }
+
+/** One board of an installation at harmonic orders: its busbar and the feeder that supplies it. */
+export interface BoardHarmonics {
+  readonly board: string;
+  /** The board feeding this one; null for the main board (fed by the supply). */
+  readonly fedFrom: string | null;
+  /** 1 for the main board, 2 for the boards it feeds, … */
+  readonly depth: number;
+  /** Per phase: the current in the board's incoming feeder (the service feeder at the main board) and the voltage at its busbar. */
+  readonly lines: readonly HarmonicLineReading[];
+  readonly lineToLine: readonly { readonly pair: string; readonly voltage: DistortionReading }[];
+  /** The incoming feeder's neutral; its rating is the feeder's neutral rating. */
+  readonly neutral: NeutralCheck | null;
+  /** rms of the zero-sequence orders (3, 9, 15…) in the feeder neutral, A; null without a neutral. */
+  readonly triplenNeutralA: number | null;
+  readonly powerFactor: { readonly true: number | null; readonly displacement: number | null };
+  readonly voltageDistortion: VoltageDistortionCheck;
+  /** Non-linear loads on this board and their spectra. */
+  readonly spectra: readonly LoadSpectrumNote[];
+}
+
+/** The scan seen from one board of an installation (a bank's board), and that bank's duty. */
+export interface BoardScan {
+  readonly board: string;
+  readonly scan: ResonanceScan;
+  /** Null where the board has no bank. */
+  readonly capacitorDuty: CapacitorDuty | null;
+}
+
+/** A warning of the installation study, with the board it is about (null for the whole installation). */
+export interface InstallationHarmonicsWarning extends HarmonicsWarning {
+  readonly board: string | null;
+}
+
+export interface InstallationHarmonicsReport {
+  readonly installation: string;
+  readonly phaseNames: PhaseNaming;
+  readonly frequencyHz: number;
+  /** Orders solved (≥ 2), over every board. */
+  readonly orders: readonly number[];
+  /** The state the board figures are for. */
+  readonly state: string;
+  /** Every board, main board first, each after the board feeding it. */
+  readonly boards: readonly BoardHarmonics[];
+  /** IEEE 519 at the supply intake (`harmonics.pcc`); null when not asked. */
+  readonly tdd: TddCheck | null;
+  /** One per bank, seen from its board; with no bank, one seen from the main board as it is. */
+  readonly scans: readonly BoardScan[];
+  readonly assumptions: readonly string[];
+  readonly warnings: readonly InstallationHarmonicsWarning[];
+  readonly cautions: readonly string[];
+}

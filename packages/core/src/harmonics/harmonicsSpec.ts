@@ -125,11 +125,26 @@ export const harmonicsSectionSchema = z
   })
   .describe('a harmonic study for `trivar harmonics`');
 
+/** A bank on one board of an installation: the installed bank's fields and the board it is on. */
+export const installationBankSchema = installedBankSchema
+  .extend({ board: z.string().min(1).describe('the name of the board the bank is on') })
+  .describe('a capacitor bank on one board of the installation; the scan switches its steps');
+
+/** An installation file's `harmonics:` section: the board file's, with banks on named boards instead of one bank. */
+export const installationHarmonicsSectionSchema = harmonicsSectionSchema
+  .omit({ bank: true })
+  .extend({
+    banks: z.array(installationBankSchema).min(1).optional().describe('capacitor banks installed on the boards, at most one per board'),
+  })
+  .describe('a harmonic study for `trivar harmonics` on the installation (pcc judges the supply intake)');
+
 export type SpectrumSpec = z.infer<typeof spectrumSchema>;
 export type SpectrumEntrySpec = z.infer<typeof spectrumEntriesSchema>[number];
 export type LinearForm = (typeof LINEAR_FORMS)[number];
 export type HarmonicsSectionSpec = z.infer<typeof harmonicsSectionSchema>;
 export type InstalledBankSpec = z.infer<typeof installedBankSchema>;
+export type InstallationBankSpec = z.infer<typeof installationBankSchema>;
+export type InstallationHarmonicsSectionSpec = z.infer<typeof installationHarmonicsSectionSchema>;
 export type HarmonicLoadSpec = LoadBaseSpec & z.infer<z.ZodObject<typeof harmonicLoadFields>>;
 /**
  * What the harmonic study reads from a board file: the board, its loads' harmonic

@@ -20,7 +20,7 @@ import { checkVoltageDistortion } from './voltageDistortion.js';
 import { HARMONICS_DEFAULTS } from './harmonicsDefaults.js';
 import type { HarmonicsBoardSpec } from './harmonicsSpec.js';
 import { harmonicsCautions, harmonicsWarningText, NEUTRAL_PRACTICE } from './harmonicsWording.js';
-import type { CapacitorDuty, DutyCase, HarmonicLineReading, HarmonicsReport, HarmonicsWarning, NeutralCheck, ResonanceScan, TddCheck } from './harmonicsResult.js';
+import type { CapacitorDuty, DutyCase, HarmonicLineReading, HarmonicsReport, HarmonicsWarning, NeutralCheck, ResonanceScan, TddCheck, VoltageDistortionCheck } from './harmonicsResult.js';
 import { conventionsOf } from '../board/conventions/boardConventions.js';
 import { regionWords } from '../board/conventions/regionWords.js';
 import { labelIn } from '../board/conventions/phaseNames.js';
@@ -44,7 +44,7 @@ export function withSteps(board: Board, bank: BankModel, steps: readonly boolean
   return { ...board, loads: board.loads.map((l, i): BoardLoad => (off.has(i) ? { ...l, branches: l.branches.map((b) => ({ ...b, sNominal: { re: 0, im: 0 } })) } : l)) };
 }
 
-function neutralCheck(board: Board, orders: readonly OrderSolution[], lines: readonly HarmonicLineReading[]): NeutralCheck | null {
+export function neutralCheck(board: Board, orders: readonly OrderSolution[], lines: readonly HarmonicLineReading[]): NeutralCheck | null {
   const current = readNeutral(orders);
   if (!current) return null;
   const triplen = current.orders.filter((o) => o.order % 3 === 0).reduce((s, o) => s + o.magnitude ** 2, 0);
@@ -61,7 +61,7 @@ function neutralCheck(board: Board, orders: readonly OrderSolution[], lines: rea
   };
 }
 
-function tddCheck(board: Board, model: HarmonicModel, lines: readonly HarmonicLineReading[]): TddCheck | null {
+export function tddCheck(board: Board, model: HarmonicModel, lines: readonly HarmonicLineReading[]): TddCheck | null {
   if (!model.pcc) return null;
   const demand = model.pcc.demandCurrentA ?? Math.max(...lines.map((l) => l.current.fundamental));
   const zSource = abs(add(board.sourceImpedance, board.lineImpedance));
@@ -90,14 +90,27 @@ function tddCheck(board: Board, model: HarmonicModel, lines: readonly HarmonicLi
   };
 }
 
-function checkedOrders(model: HarmonicModel): Pick<ResonanceScan, 'checkedOrders' | 'checkedOrdersFrom'> {
-  const present = ordersPresent(model);
+/** The orders a resonance is checked against: those solved, else the characteristic ones. */
+export function checkedOrders(present: readonly number[]): Pick<ResonanceScan, 'checkedOrders' | 'checkedOrdersFrom'> {
   return present.length
     ? { checkedOrders: present, checkedOrdersFrom: 'spectra and background' }
     : { checkedOrders: [...HARMONICS_DEFAULTS.watchedOrders], checkedOrdersFrom: 'characteristic orders (no spectrum given)' };
 }
 
-function capacitorDuty(board: Board, model: HarmonicModel, solve?: SolveOptions): CapacitorDuty | null {
+/**
+ * Solves the fundamental and every order for the bank's board as given (`board`, `model`), with
+ * every load off when `loadsOff`: the whole installation where the board has a place in one.
+ */
+export type DutySolver = (board: Board, model: HarmonicModel, loadsOff: boolean) => OrderSolution[];
+
+/** The duty solver of a single board. */
+const boardDutySolver =
+  (solve?: SolveOptions): DutySolver =>
+  (board, model, loadsOff) =>
+    solveHarmonicOrders(loadsOff ? withLoadsOff(board) : board, model, solve);
+
+/** Every state of the board's bank, each at the capacitance tolerance ends and with the loads off: the worst per state. */
+export function capacitorDuty(board: Board, model: HarmonicModel, solveOrders: DutySolver): CapacitorDuty | null {
   const bank = model.bank;
   if (!bank) return null;
   const { limits, source } = DUTY_LIMITS[model.capacitorStandard];
@@ -115,8 +128,8 @@ function capacitorDuty(board: Board, model: HarmonicModel, solve?: SolveOptions)
     const switched = withSteps(board, bank, steps);
     let worst: DutyCase | null = null;
     for (const condition of conditions) {
-      const at = withCapacitanceFactor(condition.loads === 'off' ? withLoadsOff(switched) : switched, model, condition.capacitancePercent / 100);
-      const c = dutyCase(solveHarmonicOrders(at.board, at.model, solve), at.model.bank!, steps, combinationLabel(bank, steps), limits, condition);
+      const at = withCapacitanceFactor(switched, model, condition.capacitancePercent / 100);
+      const c = dutyCase(solveOrders(at.board, at.model, condition.loads === 'off'), at.model.bank!, steps, combinationLabel(bank, steps), limits, condition);
       if (!c) continue;
       if (condition.capacitancePercent === 100 && condition.loads === 'as given') nominalCases.push(c);
       highestCapacitorVoltageV = Math.max(highestCapacitorVoltageV, c.capacitorVoltageV);
@@ -144,12 +157,12 @@ function capacitorDuty(board: Board, model: HarmonicModel, solve?: SolveOptions)
   };
 }
 
-function assumptions(board: Board, model: HarmonicModel): string[] {
+export function assumptions(board: Board, model: HarmonicModel): string[] {
   const forms = new Set(model.loads.flatMap((l) => (l.kind === 'linear' ? [l.form] : [])));
   const words = regionWords(conventionsOf(board).region, board.system);
   return [
     ...(board.sourceStarImpedance || board.openDeltaCorner
-      ? [`the frequency scan takes ${words.sourceNeutralPoint} as solidly ${words.groundWord}ed (zero-sequence impedance or open delta used by the solve at each order, not by the scan)`]
+      ? [`${words.sourceNeutralPoint} ${words.groundWord}ed as the file gives it (zero-sequence impedance or open delta), in the solve at each order and in the frequency scan alike`]
       : []),
     `linear loads as ${[...forms].join(' and ') || 'none'} R/X from their solved fundamental values (rated loads default to parallel R ‖ jX, loads in ohms and capacitors keep series form)`,
     'non-linear loads as ideal current sources; injection angle = spectrum angle + h × the angle of the load’s fundamental current',
@@ -173,39 +186,35 @@ function dutyMessage(c: DutyCase, limits: CapacitorDuty['limits']): string {
   return parts.join(', ');
 }
 
-/**
- * Runs the harmonic study on a normalised board and its resolved model.
- * @throws {NumericalError} when a solve fails
- */
-export function analyseHarmonics(board: Board, model: HarmonicModel, options: HarmonicsOptions = {}): HarmonicsReport {
-  const orders = solveHarmonicOrders(board, model, options.solve);
-  const fundamental: NetworkSolution = orders[0]!.solution;
-  const lines = readLines(orders);
-  const lineToLine = readLineToLine(orders);
-  const neutral = neutralCheck(board, orders, lines);
-  const tdd = tddCheck(board, model, lines);
-  const scan = scanResonance(fundamental, model, { ...checkedOrders(model), ...(options.scanOrders ? { grid: options.scanOrders } : {}) });
-  const duty = capacitorDuty(board, model, options.solve);
-  const phaseNames = conventionsOf(board).phaseNames;
-  // Warnings name phases, pairs and branches the way the board file does (L1-N or A-N).
-  const label = (term: string) => labelIn(phaseNames, term);
+/** What the warnings are drawn from; a part left out (null) gives none. */
+export interface WarningSources {
+  readonly scan: ResonanceScan | null;
+  readonly neutral: NeutralCheck | null;
+  readonly voltageDistortion: VoltageDistortionCheck | null;
+  readonly duty: CapacitorDuty | null;
+  readonly tdd: TddCheck | null;
+}
+
+/** The study's warnings, in a fixed order: ideal source, neutral, voltage distortion, resonance, duty, TDD. */
+export function harmonicsWarnings({ scan, neutral, voltageDistortion, duty, tdd }: WarningSources, label: (term: string) => string): HarmonicsWarning[] {
   const warnings: HarmonicsWarning[] = [];
   const warn = (code: string, message: string, value: number | null = null, threshold: number | null = null) => warnings.push({ code, message, value, threshold });
-  if (scan.shortCircuitKVA === null) warn('ideal-source', harmonicsWarningText.idealSource);
+  if (scan && scan.shortCircuitKVA === null) warn('ideal-source', harmonicsWarningText.idealSource);
   if (neutral?.overloaded) warn('neutral-overload', harmonicsWarningText.neutralOverload(neutral.current.rms, neutral.ratingA!), neutral.current.rms, neutral.ratingA);
   if (neutral?.ratioToPhase !== null && neutral?.ratioToPhase !== undefined && neutral.ratioToPhase > 1)
     warn('neutral-above-phase', harmonicsWarningText.neutralAbovePhase(neutral.ratioToPhase), neutral.ratioToPhase, 1);
-  const voltageDistortion = checkVoltageDistortion(lines, lineToLine);
-  const { individualLimitPercent: individual, thdLimitPercent: thdLimit } = voltageDistortion;
-  for (const bus of voltageDistortion.buses)
-    if (bus.thdPercent !== null && bus.thdPercent > thdLimit) warn('voltage-thd', harmonicsWarningText.voltageThd(label(bus.bus), bus.thdPercent, thdLimit), bus.thdPercent, thdLimit);
-  // One warning for every bus with an order above the individual limit: the value is the worst.
-  const overIndividual = voltageDistortion.buses.filter((b) => b.ordersAbove.length);
-  if (overIndividual.length)
-    warn('voltage-individual', harmonicsWarningText.voltageIndividual(overIndividual.map((b) => ({ ...b, bus: label(b.bus) })), individual), Math.max(...overIndividual.flatMap((b) => b.ordersAbove.map((o) => o.percent))), individual);
+  if (voltageDistortion) {
+    const { individualLimitPercent: individual, thdLimitPercent: thdLimit } = voltageDistortion;
+    for (const bus of voltageDistortion.buses)
+      if (bus.thdPercent !== null && bus.thdPercent > thdLimit) warn('voltage-thd', harmonicsWarningText.voltageThd(label(bus.bus), bus.thdPercent, thdLimit), bus.thdPercent, thdLimit);
+    // One warning for every bus with an order above the individual limit: the value is the worst.
+    const overIndividual = voltageDistortion.buses.filter((b) => b.ordersAbove.length);
+    if (overIndividual.length)
+      warn('voltage-individual', harmonicsWarningText.voltageIndividual(overIndividual.map((b) => ({ ...b, bus: label(b.bus) })), individual), Math.max(...overIndividual.flatMap((b) => b.ordersAbove.map((o) => o.percent))), individual);
+  }
   // One warning per order at risk, naming every bank state that resonates near it.
-  for (const o of scan.checkedOrders) {
-    const hits = scan.combinations.flatMap((c) => {
+  for (const o of scan?.checkedOrders ?? []) {
+    const hits = scan!.combinations.flatMap((c) => {
       if (!c.nearOrders.includes(o)) return [];
       const peak = c.peaks.reduce((best, p) => (Math.abs(p.order - o) < Math.abs(best.order - o) ? p : best));
       return [{ label: c.label, order: peak.order }];
@@ -223,11 +232,26 @@ export function analyseHarmonics(board: Board, model: HarmonicModel, options: Ha
       if (l.tddPercent > tdd.tddLimitPercent || over.length)
         warn('tdd', harmonicsWarningText.tdd(label(l.phase), l.tddPercent, tdd.tddLimitPercent, over), l.tddPercent, tdd.tddLimitPercent);
     }
-  const watts = lines.reduce((s, l) => s + l.kW * 1000, 0);
-  const apparent = lines.reduce((s, l) => s + l.voltage.rms * l.current.rms, 0);
-  const p1 = orders[0]!;
-  const fundamentalLines = readLines([p1]);
-  const apparent1 = fundamentalLines.reduce((s, l) => s + l.voltage.rms * l.current.rms, 0);
+  return warnings;
+}
+
+/**
+ * Runs the harmonic study on a normalised board and its resolved model.
+ * @throws {NumericalError} when a solve fails
+ */
+export function analyseHarmonics(board: Board, model: HarmonicModel, options: HarmonicsOptions = {}): HarmonicsReport {
+  const orders = solveHarmonicOrders(board, model, options.solve);
+  const fundamental: NetworkSolution = orders[0]!.solution;
+  const lines = readLines(orders);
+  const lineToLine = readLineToLine(orders);
+  const neutral = neutralCheck(board, orders, lines);
+  const tdd = tddCheck(board, model, lines);
+  const scan = scanResonance(fundamental, model, { ...checkedOrders(ordersPresent(model)), ...(options.scanOrders ? { grid: options.scanOrders } : {}) });
+  const duty = capacitorDuty(board, model, boardDutySolver(options.solve));
+  const phaseNames = conventionsOf(board).phaseNames;
+  const voltageDistortion = checkVoltageDistortion(lines, lineToLine);
+  // Warnings name phases, pairs and branches the way the board file names them (L1-N or A-N).
+  const warnings = harmonicsWarnings({ scan, neutral, voltageDistortion, duty, tdd }, (term) => labelIn(phaseNames, term));
   return {
     board: board.name,
     phaseNames,
@@ -237,23 +261,37 @@ export function analyseHarmonics(board: Board, model: HarmonicModel, options: Ha
     lines,
     lineToLine,
     neutral,
-    powerFactor: {
-      true: apparent > 0 ? watts / apparent : null,
-      displacement: apparent1 > 0 ? fundamentalLines.reduce((s, l) => s + l.kW * 1000, 0) / apparent1 : null,
-    },
+    powerFactor: boardPowerFactor(orders, lines),
     tdd,
     voltageDistortion,
     scan,
     capacitorDuty: duty,
-    spectra: board.loads.flatMap((load, i) => {
-      const b = model.loads[i]!;
-      if (b.kind !== 'non-linear') return [];
-      return [{ load: load.name, spectrum: b.spectrumName, source: b.source, thdPercent: 100 * Math.sqrt(b.spectrum.reduce((s, o) => s + o.fraction ** 2, 0)) }];
-    }),
+    spectra: spectraOf(board, model),
     assumptions: assumptions(board, model),
     warnings,
     cautions: harmonicsCautions(regionWords(conventionsOf(board).region, board.system).groundWord),
   };
+}
+
+/** Board figures, arithmetic over the lines: ΣP / Σ(V·I) with every order, and at the fundamental alone. */
+export function boardPowerFactor(orders: readonly OrderSolution[], lines: readonly HarmonicLineReading[]): HarmonicsReport['powerFactor'] {
+  const watts = lines.reduce((s, l) => s + l.kW * 1000, 0);
+  const apparent = lines.reduce((s, l) => s + l.voltage.rms * l.current.rms, 0);
+  const fundamentalLines = readLines([orders[0]!]);
+  const apparent1 = fundamentalLines.reduce((s, l) => s + l.voltage.rms * l.current.rms, 0);
+  return {
+    true: apparent > 0 ? watts / apparent : null,
+    displacement: apparent1 > 0 ? fundamentalLines.reduce((s, l) => s + l.kW * 1000, 0) / apparent1 : null,
+  };
+}
+
+/** The non-linear loads of a board and their spectra. */
+export function spectraOf(board: Board, model: HarmonicModel): HarmonicsReport['spectra'] {
+  return board.loads.flatMap((load, i) => {
+    const b = model.loads[i]!;
+    if (b.kind !== 'non-linear') return [];
+    return [{ load: load.name, spectrum: b.spectrumName, source: b.source, thdPercent: 100 * Math.sqrt(b.spectrum.reduce((s, o) => s + o.fraction ** 2, 0)) }];
+  });
 }
 
 /** A bank's steps are three-phase, so it needs a three-phase board. */

@@ -456,7 +456,8 @@ export class CompiledNetwork {
 
   /**
    * Current each source delivers out of its `plus` terminal in the last solve, A.
-   * Norton sources from their own equation; ideal ones by KCL at the node they fix.
+   * Norton sources from their own equation; ideal ones by KCL at the node they fix
+   * (elements, branches and any injection there).
    */
   sourceCurrents(): ComplexValue[] {
     const c = this.circuit;
@@ -467,6 +468,11 @@ export class CompiledNetwork {
     c.sources.forEach((s) => {
       if (!s.admittance) needKcl.add(s.plus);
     });
+    // A current source injecting at a node an ideal EMF holds flows into that EMF (harmonic orders).
+    for (const node of needKcl) {
+      if (node === REFERENCE || (this.injectionRe[node] === 0 && this.injectionIm[node] === 0)) continue;
+      netOut.set(node, { re: -this.injectionRe[node]!, im: -this.injectionIm[node]! });
+    }
     const leave = (node: number, re: number, im: number) => {
       if (!needKcl.has(node)) return;
       const t = netOut.get(node) ?? { re: 0, im: 0 };

@@ -132,6 +132,11 @@ export interface CircuitState {
   readonly iterations: number;
   readonly lastChange: number;
   readonly lowVoltageThreshold: number;
+  /**
+   * Per circuit branch, an ideal current source beside it (from → to), A, counted in the
+   * branch's current: a non-linear load at a harmonic order. Absent or null for none.
+   */
+  readonly branchSources?: readonly (ComplexValue | null)[];
 }
 
 /** Reads a solved circuit state board by board: line, neutral and branch currents in each board's terms. */
@@ -152,7 +157,9 @@ export function readInstallationSolution(installation: Installation, layout: Ins
           k++;
           if (!live(cb.from) || !live(cb.to)) return { voltage: ZERO, current: ZERO, admittance, energised: false };
           const voltage = sub(at(cb.from), at(cb.to));
-          return { voltage, current: mul(admittance, voltage), admittance, energised: true };
+          const source = state.branchSources?.[k - 1];
+          const current = mul(admittance, voltage);
+          return { voltage, current: source ? add(current, source) : current, admittance, energised: true };
         }),
       ),
     );

@@ -1,0 +1,113 @@
+/**
+ * InstallationHarmonicsReport → the text report of `trivar harmonics` on an installation: one
+ * summary row per board (busbar distortion, incoming feeder, its neutral), the supply's IEEE 519
+ * check, the scan and duty of each bank, then the full figures of the boards asked for.
+ */
+import type { BoardHarmonics, InstallationHarmonicsReport } from '@trivar/core';
+import { fixed, renderTableWithin, section } from './textTable.js';
+import { wrapText } from './wrapText.js';
+import { currentTable, dutyLines, labeller, neutralLines, prose, resonanceTitle, scanLine, scanTable, spectraLines, tddLines, voltageTable } from './harmonicsReport.js';
+
+/** Board names indented by their depth in the tree, as `trivar solve` shows them. */
+const treeName = (name: string, depth: number) => `${'  '.repeat(depth - 1)}${depth > 1 ? '└ ' : ''}${name}`;
+
+/** The busbar voltage with the highest THD: its label and THD. */
+function worstBus(b: BoardHarmonics): { bus: string; thd: number } | null {
+  return b.voltageDistortion.buses.reduce<{ bus: string; thd: number } | null>((w, x) => (x.thdPercent !== null && (!w || x.thdPercent > w.thd) ? { bus: x.bus, thd: x.thdPercent } : w), null);
+}
+
+function boardTable(r: InstallationHarmonicsReport): string {
+  const label = labeller(r);
+  const rows = r.boards.map((b) => {
+    const worst = worstBus(b);
+    const largestLine = b.lines.reduce((w, l) => (l.current.rms > w.current.rms ? l : w));
+    return [
+      treeName(b.board, b.depth),
+      worst ? `${fixed(worst.thd, 1)} ${label(worst.bus)}` : '-',
+      b.voltageDistortion.ok ? 'ok' : 'OVER',
+      `${fixed(largestLine.current.rms, 1)} ${label(largestLine.phase)}`,
+      largestLine.current.thdPercent === null ? '-' : fixed(largestLine.current.thdPercent, 1),
+      b.neutral ? fixed(b.neutral.current.rms, 1) : '',
+      b.triplenNeutralA === null ? '' : fixed(b.triplenNeutralA, 1),
+      b.neutral?.loadingPercent === null || b.neutral?.loadingPercent === undefined ? '-' : `${fixed(b.neutral.loadingPercent, 0)}${b.neutral.overloaded ? ' OVER' : ''}`,
+      b.powerFactor.true === null ? '-' : fixed(b.powerFactor.true, 3),
+    ];
+  });
+  return renderTableWithin(
+    [
+      { header: 'board', align: 'left' },
+      { header: 'V THD %', align: 'left' },
+      { header: '519 V', align: 'left' },
+      { header: 'feeder A', align: 'left' },
+      { header: 'I THD %' },
+      { header: 'N A' },
+      { header: 'triplen A' },
+      { header: 'N load %', align: 'left' },
+      { header: 'true PF' },
+    ],
+    rows,
+  );
+}
+
+const note = (text: string) => wrapText(text, '  (', '   ');
+
+export interface InstallationHarmonicsReportOptions {
+  /** Boards whose full figures follow the summary. */
+  readonly detailed: readonly string[];
+}
+
+export function renderInstallationHarmonicsReport(r: InstallationHarmonicsReport, options: InstallationHarmonicsReportOptions): string {
+  const label = labeller(r);
+  const out: string[] = [];
+  out.push(`${r.installation} — harmonics at ${r.frequencyHz} Hz · ${r.boards.length} boards`);
+  out.push(wrapText(`orders solved: ${r.orders.join(', ') || 'none (no spectrum or background given: linear installation)'}; state: ${r.state}`, '', '  '));
+  out.push(section('Boards (busbar voltage distortion; the feeder into each board, rms with harmonics)'));
+  out.push(boardTable(r));
+  out.push(
+    note(
+      'V THD: the busbar voltage with the highest THD; 519 V: IEEE 519 limits at ≤ 1 kV (5 % one order, 8 % THD) on every bus voltage; feeder A: the largest line current of the feeder into the board (the service feeder at the main board) and its THD; triplen A: the neutral’s orders 3, 9, 15…; N load: % of the feeder’s neutral rating; warnings below name their board.)',
+    ),
+  );
+  if (r.tdd) {
+    out.push(section('Current distortion at the supply intake (IEEE 519)'));
+    out.push(...tddLines(r.tdd, label));
+  }
+  for (const s of r.scans) {
+    out.push(section(resonanceTitle(s.scan, ` seen from ${s.board}`)));
+    out.push(scanTable(s.scan, label));
+    out.push(scanLine(s.scan, label));
+    if (s.capacitorDuty) {
+      out.push(section(`Capacitor duty with harmonics, bank on ${s.board} (every bank state)`));
+      out.push(...dutyLines(s.capacitorDuty, label));
+    }
+  }
+  const spectra = r.boards.flatMap((b) => b.spectra.map((s) => ({ ...s, load: `${s.load} (${b.board})` })));
+  if (spectra.length) {
+    out.push(section('Spectra used'));
+    out.push(...spectraLines(spectra));
+  }
+  for (const name of options.detailed) {
+    const b = r.boards.find((x) => x.board === name)!;
+    const readings = { ...b, orders: r.orders, phaseNames: r.phaseNames };
+    out.push(section(`━━ ${name}${b.fedFrom ? ` (fed from ${b.fedFrom})` : ' (fed from the supply)'} ━━`));
+    out.push(section(`Currents in the feeder into ${name} (rms with harmonics; orders as % of each line’s fundamental)`));
+    out.push(currentTable(readings));
+    out.push(section(`Voltages and power factor at ${name}`));
+    out.push(voltageTable(readings));
+    out.push(prose(`board: true PF ${b.powerFactor.true === null ? '-' : fixed(b.powerFactor.true, 3)}, displacement PF ${b.powerFactor.displacement === null ? '-' : fixed(b.powerFactor.displacement, 3)} (ΣP / Σ V·I over the lines)`));
+    if (b.neutral) {
+      out.push(section(`Neutral of the feeder into ${name}`));
+      out.push(...neutralLines(b.neutral));
+    }
+  }
+  out.push(section('Assumptions'));
+  out.push(...r.assumptions.map((a) => prose(a, '  - ')));
+  if (r.warnings.length) {
+    out.push(section('Warnings'));
+    out.push(...r.warnings.map((w) => prose(w.board === null ? `supply intake: ${w.message}` : `${w.board}: ${w.message}`, '  ! ')));
+  }
+  if (options.detailed.length === 0) out.push(section('Notes'), prose('Full figures of one board: --board "<name>"; of every board: --all-boards; everything as data: --json.', '  * '));
+  out.push(section('Cautions'));
+  out.push(...r.cautions.map((c) => prose(c, '  - ')));
+  return `${out.join('\n')}\n`;
+}

@@ -1,0 +1,233 @@
+/**
+ * |Z| between terminal pairs of one board at any order h, for any state of
+ * that board's bank, with every EMF shorted: the network "looking in" from the
+ * board. The network is the installation's compiled circuit — the one every
+ * solve uses — so the source windings, the service feeder, a source star-point
+ * impedance or open-delta corner where the file gives one, every feeder on the
+ * way to the board and every other board's loads are all in it, each scaled to
+ * order h like the harmonic solve (networkAtOrder.ts). A single board is the
+ * installation with one board.
+ *
+ * Per order the elements and the loads outside the bank are stamped once; each
+ * state then adds the bank's parts that are on and inverts the nodal matrix
+ * (network/terminalImpedance.ts: flat typed arrays, no allocation in the loop).
+ */
+import { inverse, type ComplexValue } from '../complex.js';
+import type { Board, Terminal } from '../board/boardModel.js';
+import { REFERENCE } from '../network/circuit.js';
+import { compileInstallation, type InstallationSolution } from '../network/solveNetwork.js';
+import { copyNodalMatrix, createNodalMatrix, impedanceBetween, invertNodalMatrix, stampAdmittance } from '../network/terminalImpedance.js';
+import type { HarmonicModel } from './harmonicModel.js';
+import { branchAdmittanceAtOrder } from './networkAtOrder.js';
+
+/**
+ * An evaluator of |Z| between terminal pairs at any order h, for any step
+ * combination. Reuses its matrices: not re-entrant.
+ */
+export interface ScanEvaluator {
+  readonly pairs: readonly [Terminal, Terminal][];
+  /** Loads the network without the bank at order h; call before `impedances` for that h. */
+  prepare(h: number): void;
+  /** |Z| of each pair into `out[offset + pair]` for the prepared order and `steps`. */
+  impedances(steps: readonly boolean[], out: Float64Array, offset: number): void;
+}
+
+/** Terminal pairs the scan reads: phase to neutral where there is a neutral, then line pairs. */
+export function scanPairs(board: Board): [Terminal, Terminal][] {
+  const pairs: [Terminal, Terminal][] = board.hasNeutral ? board.phases.map((p): [Terminal, Terminal] => [p, 'N']) : [];
+  if (board.phases.length === 3)
+    pairs.push(
+      ['A', 'B'],
+      ['B', 'C'],
+      ['C', 'A'],
+    );
+  else if (board.phases.length === 2) pairs.push(['A', 'B']);
+  return pairs;
+}
+
+/** Flat lists of two-terminal parts, so each order stamps them without allocating. */
+interface Parts {
+  from: number[];
+  to: number[];
+  /** 0 = parallel G + jB, 1 = series R + jX, 2 = detuned step (a = B_C, b = p), 3 = conductor R + jX (resistance rule). */
+  kind: number[];
+  a: number[];
+  b: number[];
+}
+
+const emptyParts = (): Parts => ({ from: [], to: [], kind: [], a: [], b: [] });
+
+/** Numbers the unknowns with the EMFs shorted: a node an ideal EMF holds sits on the EMF's other end. */
+function numberUnknowns(circuit: ReturnType<typeof compileInstallation>['network']['circuit'], live: Uint8Array): Int32Array {
+  const index = new Int32Array(circuit.nodeNames.length).fill(-1);
+  const held = new Map<number, number>();
+  for (const s of circuit.sources) if (!s.admittance) held.set(s.plus, s.minus);
+  let size = 0;
+  live.forEach((ok, node) => {
+    if (ok && !held.has(node)) index[node] = size++;
+  });
+  // Ideal sources are listed after the one their minus hangs from (see circuit.ts).
+  for (const s of circuit.sources) if (!s.admittance) index[s.plus] = s.minus === REFERENCE ? -1 : index[s.minus]!;
+  return index;
+}
+
+/**
+ * The evaluator for board `boardIndex` of a solved installation (0 = main board).
+ * @param fundamental the installation solved at the fundamental with every bank part on
+ * @param models one per board: how its loads behave at harmonic orders; the scanned board's bank is switched
+ */
+export function createInstallationScanEvaluator(fundamental: InstallationSolution, models: readonly HarmonicModel[], boardIndex: number): ScanEvaluator {
+  const { layout, network } = compileInstallation(fundamental.installation);
+  const circuit = network.circuit;
+  const unknown = numberUnknowns(circuit, network.live);
+  const at = (node: number) => (node === REFERENCE ? -1 : unknown[node]!);
+  const alive = (node: number) => node === REFERENCE || network.live[node] === 1;
+  const size = Math.max(-1, ...unknown) + 1;
+  const resistance = models[0]!.resistance;
+  const board = fundamental.boards[boardIndex]!.board;
+  const terminals = layout.topologies[boardIndex]!.terminalNode;
+  const pairs = scanPairs(board);
+  const ends = pairs.map(([p, q]) => [terminals.has(p) ? at(terminals.get(p)!) : -1, terminals.has(q) ? at(terminals.get(q)!) : -1] as const);
+
+  // Conductors and source windings (EMFs shorted): their impedance at the fundamental, scaled per order.
+  const fixed = emptyParts();
+  const push = (into: Parts, from: number, to: number, kind: number, a: number, b: number) => {
+    into.from.push(from);
+    into.to.push(to);
+    into.kind.push(kind);
+    into.a.push(a);
+    into.b.push(b);
+  };
+  for (const e of circuit.elements) {
+    if (!alive(e.from) || !alive(e.to)) continue;
+    const z = inverse(e.admittance);
+    push(fixed, at(e.from), at(e.to), 3, z.re, z.im);
+  }
+  for (const s of circuit.sources) {
+    if (!s.admittance) continue;
+    const z = inverse(s.admittance);
+    push(fixed, at(s.plus), at(s.minus), 3, z.re, z.im);
+  }
+  // Loads: linear ones at their solved admittance, non-linear ones open; the scanned bank apart.
+  const bank = models[boardIndex]!.bank;
+  const bankParts = new Set(bank ? [...(bank.fixedLoad === null ? [] : [bank.fixedLoad]), ...bank.stepLoads] : []);
+  const detuningFactors = new Set<number>();
+  fundamental.boards.forEach((solution, b) => {
+    let k = layout.branchOffset[b]!;
+    solution.board.loads.forEach((load, l) => {
+      const behaviour = models[b]!.loads[l]!;
+      if (behaviour.kind === 'detuned') detuningFactors.add(behaviour.p);
+      load.branches.forEach((_, i) => {
+        const cb = circuit.branches[k++]!;
+        const y = solution.branches[l]![i]!.admittance;
+        if ((b === boardIndex && bankParts.has(l)) || behaviour.kind === 'non-linear') return;
+        if (!alive(cb.from) || !alive(cb.to) || (y.re === 0 && y.im === 0)) return;
+        if (behaviour.kind === 'detuned') push(fixed, at(cb.from), at(cb.to), 2, y.im * (1 - behaviour.p), behaviour.p);
+        else if (behaviour.form === 'parallel') push(fixed, at(cb.from), at(cb.to), 0, y.re, y.im);
+        else {
+          const z = inverse(y);
+          push(fixed, at(cb.from), at(cb.to), 1, z.re, z.im);
+        }
+      });
+    });
+  });
+  const stampFixed = (m: ReturnType<typeof createNodalMatrix>, h: number) => {
+    const rootH = Math.sqrt(h);
+    for (let i = 0; i < fixed.kind.length; i++) {
+      const a = fixed.a[i]!;
+      const b = fixed.b[i]!;
+      let g: number;
+      let s: number;
+      switch (fixed.kind[i]) {
+        case 0:
+          g = a;
+          s = b < 0 ? b / h : b * h;
+          break;
+        case 1:
+        case 3: {
+          // As impedanceAtOrder: X·h inductive, X/h capacitive; a conductor's R constant or × √h.
+          const r = fixed.kind[i] === 3 && resistance === 'skin-effect' ? a * rootH : a;
+          const x = b >= 0 ? b * h : b / h;
+          const d = r * r + x * x;
+          g = r / d;
+          s = -x / d;
+          break;
+        }
+        default:
+          g = 0;
+          s = (a * h) / (1 - h * h * b);
+      }
+      stampAdmittance(m, fixed.from[i]!, fixed.to[i]!, g, s);
+    }
+  };
+
+  // The bank's parts, each with its branches' ends; floating star points of the bank are tied to
+  // nothing while every part on them is off, so they get a unit diagonal then.
+  const bankSolution = fundamental.boards[boardIndex]!;
+  const firstBranch: number[] = [];
+  bankSolution.board.loads.reduce((k, load) => (firstBranch.push(k), k + load.branches.length), layout.branchOffset[boardIndex]!);
+  const partEnds = new Map<number, ([number, number] | null)[]>(
+    [...bankParts].map((l) => [
+      l,
+      bankSolution.board.loads[l]!.branches.map((_, i) => {
+        const cb = circuit.branches[firstBranch[l]! + i]!;
+        return alive(cb.from) && alive(cb.to) ? [at(cb.from), at(cb.to)] : null;
+      }),
+    ]),
+  );
+  const starNodesOf = (l: number) =>
+    [...new Set(board.loads[l]!.branches.flatMap((b) => [b.from, b.to]).filter((t) => t.startsWith('star:')))].map((t) => at(terminals.get(t) ?? REFERENCE)).filter((n) => n >= 0);
+  const bankStarNodes = [...new Set([...bankParts].flatMap(starNodesOf))];
+  const partsOnStar = new Map<number, number[]>(bankStarNodes.map((n) => [n, [...bankParts].filter((l) => starNodesOf(l).includes(n))]));
+  const partStamps = new Map<number, { p: number; q: number; y: ComplexValue }[]>();
+  const stepOfPart = new Map<number, number>(bank ? bank.stepLoads.map((l, k) => [l, k]) : []);
+  const parts = [...bankParts];
+
+  const base = createNodalMatrix(size);
+  const work = createNodalMatrix(size);
+  const inverseWork = createNodalMatrix(size);
+  const pairZ = new Float64Array(2);
+  return {
+    pairs,
+    prepare(h0: number) {
+      // Off the exact series resonance of a lossless detuned branch, where its admittance is infinite.
+      let h = h0;
+      for (const p of detuningFactors) if (Math.abs(1 - h0 * h0 * p) < 1e-9) h = h0 * (1 + 1e-7);
+      base.re.fill(0);
+      base.im.fill(0);
+      stampFixed(base, h);
+      for (const l of parts) {
+        const behaviour = models[boardIndex]!.loads[l]!;
+        partStamps.set(
+          l,
+          bankSolution.branches[l]!.flatMap((state, k) => {
+            const e = partEnds.get(l)![k];
+            return e ? [{ p: e[0], q: e[1], y: branchAdmittanceAtOrder(state.admittance, behaviour, h) }] : [];
+          }),
+        );
+      }
+    },
+    impedances(steps, out, offset) {
+      copyNodalMatrix(base, work);
+      const isOn = (l: number) => {
+        const step = stepOfPart.get(l);
+        return step === undefined || steps[step] === true;
+      };
+      for (const l of parts) if (isOn(l)) for (const s of partStamps.get(l)!) stampAdmittance(work, s.p, s.q, s.y.re, s.y.im);
+      for (const n of bankStarNodes) if (!partsOnStar.get(n)!.some(isOn)) stampAdmittance(work, n, -1, 1, 0);
+      if (size > 0) invertNodalMatrix(work, inverseWork);
+      for (let k = 0; k < ends.length; k++) {
+        if (size === 0) pairZ.fill(0);
+        else impedanceBetween(work, ends[k]![0], ends[k]![1], pairZ, 0);
+        // Math.hypot is several times slower than this in V8, and |Z| never nears overflow.
+        out[offset + k] = Math.sqrt(pairZ[0]! * pairZ[0]! + pairZ[1]! * pairZ[1]!);
+      }
+    },
+  };
+}
+
+/** The evaluator of a single board (the installation with one board). */
+export function createBoardScanEvaluator(fundamental: InstallationSolution['boards'][number], model: HarmonicModel): ScanEvaluator {
+  const { installation: _place, ...board } = fundamental.board;
+  return createInstallationScanEvaluator({ installation: { name: board.name, main: board, subBoards: [] }, boards: [{ ...fundamental, board }] }, [model], 0);
+}

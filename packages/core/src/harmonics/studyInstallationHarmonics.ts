@@ -1,0 +1,219 @@
+/**
+ * The harmonic study of an installation: every board's loads at once, through
+ * the installation's compiled network at the fundamental and at every order
+ * present (installationAtOrder.ts). Per board: the busbar voltages, the
+ * incoming feeder's line and neutral currents (the triplen current each feeder
+ * neutral carries back), power factors, voltage limits. Per bank: the scan of
+ * every state seen from its board, with the supply and every feeder on the way
+ * in the path, and its duty. A board file is the installation with one board,
+ * and gives the figures `studyBoardHarmonics` gives.
+ */
+import type { Board, BoardLoad, Installation } from '../board/boardModel.js';
+import type { InstallationBaseSpec } from '../board/installationSchema.js';
+import { normaliseInstallation } from '../board/normaliseInstallation.js';
+import { conventionsOf } from '../board/conventions/boardConventions.js';
+import { labelIn } from '../board/conventions/phaseNames.js';
+import { regionWords } from '../board/conventions/regionWords.js';
+import { InputError, inputIssue, type InputIssue } from '../errors.js';
+import { boardOfInstallation, installationOf } from '../network/installationModel.js';
+import { solveInstallationNetwork, type InstallationSolution, type SolveOptions } from '../network/solveNetwork.js';
+import { addInstalledBank, ordersPresent, resolveHarmonicModel, type BankModel, type HarmonicModel } from './harmonicModel.js';
+import type { HarmonicLoadSpec, InstallationHarmonicsSectionSpec } from './harmonicsSpec.js';
+import type { BoardHarmonics, BoardScan, InstallationHarmonicsReport, InstallationHarmonicsWarning } from './harmonicsResult.js';
+import { solveInstallationAtOrder } from './installationAtOrder.js';
+import { readLines, readLineToLine, type OrderSolution } from './readHarmonics.js';
+import { combinationLabel, scanResonance } from './scanResonance.js';
+import { createInstallationScanEvaluator } from './scanEvaluator.js';
+import { withInstallationLoadsOff } from './dutyConditions.js';
+import { checkVoltageDistortion } from './voltageDistortion.js';
+import { harmonicsCautions } from './harmonicsWording.js';
+import {
+  assumptions,
+  boardPowerFactor,
+  capacitorDuty,
+  checkedOrders,
+  harmonicsWarnings,
+  neutralCheck,
+  spectraOf,
+  tddCheck,
+  type DutySolver,
+  type HarmonicsOptions,
+} from './studyHarmonics.js';
+
+/** What the study reads of an installation file: the installation, its loads' harmonic fields and the `harmonics:` section. */
+export type HarmonicsInstallationSpec = Omit<InstallationBaseSpec, 'boards'> & {
+  boards: (Omit<InstallationBaseSpec['boards'][number], 'loads'> & { loads: HarmonicLoadSpec[] })[];
+  harmonics?: InstallationHarmonicsSectionSpec | undefined;
+};
+
+/** The installation with board `b`'s loads replaced. */
+function withBoardLoads(installation: Installation, b: number, loads: readonly BoardLoad[]): Installation {
+  if (b === 0) return { ...installation, main: { ...installation.main, loads } };
+  return { ...installation, subBoards: installation.subBoards.map((sb, i) => (i + 1 === b ? { ...sb, loads } : sb)) };
+}
+
+const boardNames = (installation: Installation) => [installation.main.name, ...installation.subBoards.map((sb) => sb.name)];
+
+/** Each bank names a board of the installation, at most one bank per board, on a three-phase supply. */
+function checkBanks(section: InstallationHarmonicsSectionSpec, installation: Installation): number[] {
+  const names = boardNames(installation);
+  const issues: InputIssue[] = [];
+  const boardOf: number[] = [];
+  const seen = new Map<number, number>();
+  (section.banks ?? []).forEach((bank, i) => {
+    const path = `harmonics.banks[${i}]`;
+    const b = names.indexOf(bank.board);
+    boardOf.push(b);
+    if (b < 0) issues.push(inputIssue('unknown_board', `${path}.board`, `the name of a board in this installation: ${names.map((n) => JSON.stringify(n)).join(', ')}`, bank.board));
+    else if (seen.has(b)) issues.push(inputIssue('duplicate', `${path}.board`, `one bank per board (harmonics.banks[${seen.get(b)}] is already on "${bank.board}")`, bank.board));
+    else seen.set(b, i);
+    if (installation.main.phases.length !== 3) issues.push(inputIssue('not_applicable', path, 'a bank on a three-phase installation (its steps are three-phase)', installation.main.system));
+  });
+  if (issues.length) throw new InputError(issues, 'the harmonic study does not fit the installation');
+  return boardOf;
+}
+
+/** Every order any board's loads inject or the supply carries, ascending. */
+function ordersOf(models: readonly HarmonicModel[]): number[] {
+  return [...new Set(models.flatMap(ordersPresent))].sort((a, b) => a - b);
+}
+
+/** The fundamental and every order, read at board `b`. */
+function boardOrders(b: number, fundamental: InstallationSolution, solved: readonly { order: number; solution: InstallationSolution }[]): OrderSolution[] {
+  return [{ order: 1, solution: fundamental.boards[b]! }, ...solved.map((o) => ({ order: o.order, solution: o.solution.boards[b]! }))];
+}
+
+/** Solves the installation at the fundamental and every order. */
+function solveOrders(installation: Installation, models: readonly HarmonicModel[], solve?: SolveOptions) {
+  const fundamental = solveInstallationNetwork(installation, solve);
+  return { fundamental, solved: ordersOf(models).map((order) => ({ order, solution: solveInstallationAtOrder(fundamental, models, order) })) };
+}
+
+/** The duty solver of bank board `b`: the whole installation with that board as the bank state has it. */
+function installationDutySolver(models: readonly HarmonicModel[], b: number, solve?: SolveOptions): DutySolver {
+  return (board, model, loadsOff) => {
+    const { installation } = installationOf(board);
+    const at = models.map((m, i) => (i === b ? model : m));
+    const { fundamental, solved } = solveOrders(loadsOff ? withInstallationLoadsOff(installation) : installation, at, solve);
+    return boardOrders(b, fundamental, solved);
+  };
+}
+
+function depthOf(installation: Installation, b: number): number {
+  let depth = 1;
+  for (let at = b; at !== 0; at = installation.subBoards[at - 1]!.fedFrom) depth++;
+  return depth;
+}
+
+function installationAssumptions(main: Board, models: readonly HarmonicModel[], banks: readonly number[]): string[] {
+  // The single-board wording, with every board's load forms and any bank.
+  const merged: HarmonicModel = { ...models[0]!, loads: models.flatMap((m) => m.loads), bank: models.find((m) => m.bank)?.bank ?? null };
+  return [
+    ...assumptions(main, merged),
+    'sub-board feeders per conductor like the service feeder (line and neutral); each feeder neutral carries its boards’ zero-sequence (triplen) current back towards the source',
+    ...(banks.length > 1 ? ['each bank’s scan and duty switch its own steps with every other bank fully on'] : []),
+  ];
+}
+
+/** An installation ready for its harmonic study: the banks added as loads of their boards, and every board's model. */
+export interface InstallationHarmonicModel {
+  readonly installation: Installation;
+  /** One per board (0 = main board): how its loads behave at harmonic orders, its bank if it has one. */
+  readonly models: readonly HarmonicModel[];
+  /** Per bank of `harmonics.banks`, its board number. */
+  readonly bankBoards: readonly number[];
+}
+
+/**
+ * Normalises a validated installation file and adds its banks: the installation and
+ * models the study solves (also what a check against another solver starts from).
+ * @throws {InputError} for a bank on an unknown board, two banks on one board, or a bank on a supply that is not three-phase
+ */
+export function resolveInstallationHarmonics(spec: HarmonicsInstallationSpec): InstallationHarmonicModel {
+  const { installation: plain, boardNumber } = normaliseInstallation(spec);
+  const section = spec.harmonics ?? {};
+  const bankBoards = checkBanks(section, plain);
+  const count = plain.subBoards.length + 1;
+  let installation = plain;
+  const bankModels: (BankModel | null)[] = new Array(count).fill(null);
+  (section.banks ?? []).forEach((bank, i) => {
+    const b = bankBoards[i]!;
+    const added = addInstalledBank(boardOfInstallation(installation, b), bank);
+    installation = withBoardLoads(installation, b, added.board.loads);
+    bankModels[b] = added.model;
+  });
+  const loadSpecs: HarmonicLoadSpec[][] = new Array(count);
+  spec.boards.forEach((board, i) => (loadSpecs[boardNumber[i]!] = board.loads));
+  const { banks: bankSpecs, ...shared } = section;
+  const models = Array.from({ length: count }, (_, b) => {
+    const bank = bankSpecs?.find((_, i) => bankBoards[i] === b);
+    return resolveHarmonicModel({ loads: loadSpecs[b]!, harmonics: { ...shared, ...(bank ? { bank } : {}) } }, boardOfInstallation(installation, b), bankModels[b]!);
+  });
+  return { installation, models, bankBoards };
+}
+
+/**
+ * Runs the harmonic study of a validated installation file (board loads'
+ * `spectrum` fields, the `harmonics:` section with banks on named boards).
+ * @throws {InputError} for a bank on an unknown board, two banks on one board, or a bank on a supply that is not three-phase
+ * @throws {NumericalError} when a solve fails
+ */
+export function studyInstallationHarmonicsSpec(spec: HarmonicsInstallationSpec, options: HarmonicsOptions = {}): InstallationHarmonicsReport {
+  const { installation, models, bankBoards } = resolveInstallationHarmonics(spec);
+  const { fundamental, solved } = solveOrders(installation, models, options.solve);
+  const main = fundamental.boards[0]!.board;
+  const phaseNames = conventionsOf(main).phaseNames;
+  const label = (term: string) => labelIn(phaseNames, term);
+  const warnings: InstallationHarmonicsWarning[] = [];
+  const names = boardNames(installation);
+  const boards = fundamental.boards.map((solution, b): BoardHarmonics => {
+    const orders = boardOrders(b, fundamental, solved);
+    const board = solution.board;
+    const lines = readLines(orders);
+    const lineToLine = readLineToLine(orders);
+    const neutral = neutralCheck(board, orders, lines);
+    const voltageDistortion = checkVoltageDistortion(lines, lineToLine);
+    warnings.push(...harmonicsWarnings({ scan: null, neutral, voltageDistortion, duty: null, tdd: null }, label).map((w) => ({ ...w, board: board.name })));
+    return {
+      board: board.name,
+      fedFrom: b === 0 ? null : names[installation.subBoards[b - 1]!.fedFrom]!,
+      depth: depthOf(installation, b),
+      lines,
+      lineToLine,
+      neutral,
+      triplenNeutralA: neutral ? Math.sqrt(neutral.current.orders.filter((o) => o.order % 3 === 0).reduce((s, o) => s + o.magnitude ** 2, 0)) : null,
+      powerFactor: boardPowerFactor(orders, lines),
+      voltageDistortion,
+      spectra: spectraOf(board, models[b]!),
+    };
+  });
+
+  // Scan from each bank's board; with no bank, from the main board as it is.
+  const scanned = bankBoards.length ? [...bankBoards].sort((a, b) => a - b) : [0];
+  const checked = checkedOrders(ordersOf(models));
+  const scans = scanned.map((b): BoardScan => {
+    const scan = scanResonance(fundamental.boards[b]!, models[b]!, { ...checked, ...(options.scanOrders ? { grid: options.scanOrders } : {}) }, createInstallationScanEvaluator(fundamental, models, b));
+    const duty = capacitorDuty(fundamental.boards[b]!.board, models[b]!, installationDutySolver(models, b, options.solve));
+    warnings.push(...harmonicsWarnings({ scan, neutral: null, voltageDistortion: null, duty, tdd: null }, label).map((w) => ({ ...w, board: names[b]! })));
+    return { board: names[b]!, scan, capacitorDuty: duty };
+  });
+  const tdd = tddCheck(main, models[0]!, boards[0]!.lines);
+  warnings.push(...harmonicsWarnings({ scan: null, neutral: null, voltageDistortion: null, duty: null, tdd }, label).map((w) => ({ ...w, board: null })));
+  const bankStates = scanned.flatMap((b) => {
+    const bank = models[b]!.bank;
+    return bank ? [`${names[b]}: ${combinationLabel(bank, bank.stepLoads.map(() => true))}`] : [];
+  });
+  return {
+    installation: installation.name,
+    phaseNames,
+    frequencyHz: main.frequencyHz,
+    orders: solved.map((o) => o.order),
+    state: bankStates.length ? `every bank step on (${bankStates.join('; ')})` : 'as given',
+    boards,
+    tdd,
+    scans,
+    assumptions: installationAssumptions(installation.main, models, bankBoards),
+    warnings,
+    cautions: harmonicsCautions(regionWords(conventionsOf(main).region, main.system).groundWord),
+  };
+}
