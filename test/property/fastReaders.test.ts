@@ -1,12 +1,12 @@
 /**
  * The shortcuts the correction's sizing loops take give exactly what the general path gives:
- * line powers read without the whole analysis, and trial banks solved on a network compiled
+ * line powers and sequence currents read without the whole analysis, and trial banks solved on a network compiled
  * once per loop (new branch values only) against a fresh `solveNetwork` of the same board.
  */
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { addCorrectionEquipment, analyseSolution, normaliseBoard, solveNetwork, type BoardSpec } from '@trivar/core';
-import { readLinePowers } from '../../packages/core/src/analysis/analyseSolution.js';
+import { readLinePowers, readSequenceCurrents } from '../../packages/core/src/analysis/analyseSolution.js';
 import { createProbe } from '../../packages/core/src/correction/_internal/boardProbe.js';
 import { deltaSlots, starSlots } from '../../packages/core/src/correction/equipment.js';
 import { boardSpecArb } from './arbitraries/boardSpec.js';
@@ -20,6 +20,25 @@ describe('fast readers of the sizing loops', () => {
         const solution = solveNetwork(normaliseBoard(spec));
         const phases = analyseSolution(solution).phases;
         expect(readLinePowers(solution).map((p) => [p.kW, p.kvar, p.kVA])).toEqual(phases.map((p) => [p.kW, p.kvar, p.kVA]));
+      }),
+      { numRuns: 60 },
+    );
+  });
+
+  it('readSequenceCurrents equals the analysis’ sequence currents and positive-sequence power, to the last bit', () => {
+    fc.assert(
+      fc.property(boardSpecArb(), (spec) => {
+        const solution = solveNetwork(normaliseBoard(spec));
+        const result = analyseSolution(solution);
+        const read = readSequenceCurrents(solution);
+        if (!result.sequences) {
+          expect(read).toBeNull();
+          return;
+        }
+        const plain = (x: { re: number; im: number }) => [x.re, x.im];
+        const current = result.sequences.current;
+        expect([read!.current.zero, read!.current.positive, read!.current.negative].map(plain)).toEqual([current.zero, current.positive, current.negative].map(plain));
+        expect(read!.positiveSequence).toEqual({ kW: result.powerFactor.positiveSequence!.kW, kvar: result.powerFactor.positiveSequence!.kvar });
       }),
       { numRuns: 60 },
     );
@@ -50,6 +69,7 @@ describe('fast readers of the sizing loops', () => {
             expect(state.lineP).toEqual(fresh.phases.map((p) => p.kW));
             expect(state.lineQ).toEqual(fresh.phases.map((p) => p.kvar));
             expect(state.result).toEqual(fresh);
+            expect(state.sequences!.current.negative).toEqual({ re: fresh.sequences!.current.negative.re, im: fresh.sequences!.current.negative.im });
           }
         },
       ),

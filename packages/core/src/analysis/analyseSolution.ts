@@ -6,9 +6,9 @@ import { abs, absSquared, add, conj, mul, scale, sub, sum, toPhasor, ZERO, type 
 import { isThreePhase } from '../board/systemTopology.js';
 import type { PhaseId } from '../board/boardModel.js';
 import { terminalVoltage, type NetworkSolution } from '../network/solveNetwork.js';
-import { sequenceComponents } from './symmetricalComponents.js';
+import { sequenceComponents, type SequenceSet } from './symmetricalComponents.js';
 import { deviationFromAveragePercent, motorDeratingFactor } from './unbalanceIndices.js';
-import { boardPowerDefinitions } from './powerDefinitions.js';
+import { boardPowerDefinitions, positiveSequencePower } from './powerDefinitions.js';
 import { conventionsOf } from '../board/conventions/boardConventions.js';
 import { labelIn } from '../board/conventions/phaseNames.js';
 import { checkVoltages } from './voltageCheck.js';
@@ -138,6 +138,30 @@ export function readLinePowers(solved: NetworkSolution): PowerReading[] {
   const floor = currentNoiseFloor(solved);
   const phase = boardVoltages(solved).phase;
   return solved.lineCurrents.map((i, k) => powerReading(mul(phase[k]!, conj(abs(i) < floor ? ZERO : i))));
+}
+
+/** What a balancing compensator's sizing reads off a trial solve. */
+export interface SequenceReading {
+  /** Sequence components of the line currents, A (`analyseSolution(solved).sequences.current` as plain complex values). */
+  readonly current: SequenceSet;
+  /** Positive-sequence power (`analyseSolution(solved).powerFactor.positiveSequence`'s kW and kvar). */
+  readonly positiveSequence: { readonly kW: number; readonly kvar: number };
+}
+
+/**
+ * The line currents' sequence components and the positive-sequence power of a three-phase board,
+ * read the same way `analyseSolution` reads them (noise floor included, the same operations, so the
+ * same numbers) without the rest of the analysis; null on a board without three phases.
+ */
+export function readSequenceCurrents(solved: NetworkSolution): SequenceReading | null {
+  if (!isThreePhase(solved.board.system)) return null;
+  const floor = currentNoiseFloor(solved);
+  const lines = solved.lineCurrents.map((i) => (abs(i) < floor ? ZERO : i));
+  const triple = (xs: readonly ComplexValue[]) => xs as unknown as [ComplexValue, ComplexValue, ComplexValue];
+  const vs = sequenceComponents(triple(boardVoltages(solved).phase), solved.board.sequence);
+  const is = sequenceComponents(triple(lines), solved.board.sequence);
+  const { p1, q1 } = positiveSequencePower(vs.positive, is.positive);
+  return { current: is, positiveSequence: { kW: p1 / 1000, kvar: q1 / 1000 } };
 }
 
 export function analyseSolution(solved: NetworkSolution): BoardResult {

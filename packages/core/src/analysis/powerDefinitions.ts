@@ -41,6 +41,11 @@ export function effectiveQuantities(
   };
 }
 
+/** S1+ = 3·V1·conj(I1): P1+ and Q1+ in the load convention, W and var. */
+export function positiveSequencePower(V1: ComplexValue, I1: ComplexValue): { p1: number; q1: number } {
+  return { p1: 3 * (V1.re * I1.re + V1.im * I1.im), q1: 3 * (V1.im * I1.re - V1.re * I1.im) };
+}
+
 export function boardPowerDefinitions(input: {
   readonly phasePowers: readonly ComplexValue[];
   readonly phaseVoltages: readonly number[];
@@ -63,9 +68,7 @@ export function boardPowerDefinitions(input: {
     effective = { ...reading(p, se), Ve, Ie };
     const { V1, I1 } = input.sequence;
     const s1 = 3 * abs(V1) * abs(I1);
-    // S1+ = 3·V1·conj(I1): P1+ and Q1+ in the load convention.
-    const p1 = 3 * (V1.re * I1.re + V1.im * I1.im);
-    const q1 = 3 * (V1.im * I1.re - V1.re * I1.im);
+    const { p1, q1 } = positiveSequencePower(V1, I1);
     positiveSequence = { ...reading(p1, s1), kW: p1 / 1000, kvar: q1 / 1000 };
     unbalancedKVA = Math.sqrt(Math.max(0, se * se - s1 * s1)) / 1000;
   }

@@ -21,6 +21,8 @@ export function collapseError(result: { readonly operatingPoint: Pick<OperatingP
  * @throws {NumericalError} reason `collapsed`, or as `solveNetwork` throws
  */
 export function assertViableBoard(board: Board): void {
+  // A comparison asks once for the study and once per arrangement; a board is an immutable value.
+  if (viableBoards.has(board)) return;
   const { installation } = installationOf(board);
   const boards = solveInstallationNetwork(installation).boards;
   const findings = boards.flatMap((s) => {
@@ -29,4 +31,8 @@ export function assertViableBoard(board: Board): void {
     return boards.length > 1 ? point.findings.map((f) => `${s.board.name}: ${f}`) : point.findings;
   });
   if (findings.length) throw collapseError({ operatingPoint: { findings } });
+  viableBoards.add(board);
 }
+
+/** Boards already solved and found viable. */
+const viableBoards = new WeakSet<Board>();

@@ -27,12 +27,13 @@ import { refitReactors, selectionWithResizedReactors } from './_internal/refitRe
 import { conventionsOf } from '../board/conventions/boardConventions.js';
 import { regionWords } from '../board/conventions/regionWords.js';
 
-function sizeArrangement(board: Board, spec: CorrectionSpec & { arrangement: Arrangement }): BankSizing | CompensatorSizing {
+/** @param use `limitsOnly` for the light-load sizing, read only for its limits (see ResolvedBankOptions) */
+function sizeArrangement(board: Board, spec: CorrectionSpec & { arrangement: Arrangement }, use: { limitsOnly?: boolean } = {}): BankSizing | CompensatorSizing {
   switch (spec.arrangement) {
     case 'star-bank':
-      return sizeStarBank(board, definedOnly({ target: spec.target, starPoint: spec.starPoint, share: spec.share }));
+      return sizeStarBank(board, definedOnly({ target: spec.target, starPoint: spec.starPoint, share: spec.share }), use);
     case 'delta-bank':
-      return sizeDeltaBank(board, definedOnly({ target: spec.target, share: spec.share }));
+      return sizeDeltaBank(board, definedOnly({ target: spec.target, share: spec.share }), use);
     case 'balancing-compensator':
       return sizeBalancingCompensator(
         board,
@@ -107,7 +108,7 @@ export function correctBoard(board: Board, spec: unknown): CorrectionReport {
   const sizing = sizeArrangement(board, parsed);
   const sized = buildable(sizing);
   const needsUnits = sizing.status !== 'already-meets-target' && sized.branches.some((b) => b.element === 'capacitor');
-  const lightSized = parsed.lightLoad && needsUnits ? buildable(sizeArrangement(scaleBoardLoads(board, parsed.lightLoad), parsed)) : undefined;
+  const lightSized = parsed.lightLoad && needsUnits ? buildable(sizeArrangement(scaleBoardLoads(board, parsed.lightLoad), parsed, { limitsOnly: true })) : undefined;
   const selection = needsUnits
     ? selectBankUnits(
         sized,

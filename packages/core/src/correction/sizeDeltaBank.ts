@@ -58,6 +58,8 @@ function resolveDeltaBankOptions(board: Board, input: DeltaBankOptions | undefin
  * @param board a normalised three-phase board
  * @returns ratings per line pair, the corrected board's check against the
  *   target, and per line the change in active current the branches cause
+ * @param use `limitsOnly`: a light-load sizing, read only for its limits (an equal bank's window is then
+ *   found up to its limit only, `equalShare.minKvar` null)
  * @throws {InputError} on a board without three phases, or options that do not fit it
  * @throws {NumericalError} if a re-solve fails
  * @example
@@ -65,7 +67,7 @@ function resolveDeltaBankOptions(board: Board, input: DeltaBankOptions | undefin
  * sizeDeltaBank(board, { target: { pf: 0.95 } }).branches.map((b) => b.kvarAtNominalV)
  * //=> [12.64…, 12.64…, 12.64…]
  */
-export function sizeDeltaBank(board: Board, options?: DeltaBankOptions): BankSizing {
+export function sizeDeltaBank(board: Board, options?: DeltaBankOptions, use: { limitsOnly?: boolean } = {}): BankSizing {
   const resolved = resolveDeltaBankOptions(board, options);
-  return sizeBank(board, 'delta-bank', deltaSlots(board), resolved);
+  return sizeBank(board, 'delta-bank', deltaSlots(board), { ...resolved, ...use });
 }

@@ -66,6 +66,8 @@ function resolveStarBankOptions(board: Board, input: StarBankOptions | undefined
  * @returns ratings per phase (kvar at nominal and at the solved voltage, µF,
  *   current), the corrected board's check against the target, and the change
  *   in each line's active and reactive current
+ * @param use `limitsOnly`: a light-load sizing, read only for its limits (an equal bank's window is then
+ *   found up to its limit only, `equalShare.minKvar` null)
  * @throws {InputError} for options that do not fit the board (field path in each issue)
  * @throws {NumericalError} if a re-solve fails
  * @example
@@ -73,7 +75,7 @@ function resolveStarBankOptions(board: Board, input: StarBankOptions | undefined
  * sizeStarBank(board, { target: { pf: 0.95 } }).branches[0].kvarAtNominalV
  * //=> 12.64… (= 30 × (tan acos 0.8 − tan acos 0.95))
  */
-export function sizeStarBank(board: Board, options?: StarBankOptions): BankSizing {
+export function sizeStarBank(board: Board, options?: StarBankOptions, use: { limitsOnly?: boolean } = {}): BankSizing {
   const resolved = resolveStarBankOptions(board, options);
-  return sizeBank(board, 'star-bank', starSlots(board, resolved.starPoint), resolved);
+  return sizeBank(board, 'star-bank', starSlots(board, resolved.starPoint), { ...resolved, ...use });
 }

@@ -87,6 +87,17 @@ function voltageRise(board: Board, capacitorKvar: number, before: BoardResult, a
  * v.check.met //=> true when the built bank meets the target
  * v.lightLoad?.leadingLines //=> [] when the fixed part keeps every line lagging at light load
  */
+/**
+ * The board without equipment, solved and analysed with the default options: the same for every
+ * arrangement a comparison verifies (and for a compensator's ideal solution), so solved once per board.
+ */
+const asIs = new WeakMap<Board, BoardResult>();
+function solvedAsIs(board: Board): BoardResult {
+  let result = asIs.get(board);
+  if (!result) asIs.set(board, (result = analyseSolution(solveNetwork(board))));
+  return result;
+}
+
 export function verifyCorrection(board: Board, options: VerifyCorrectionOptions): CorrectionVerification {
   const opts = parseOptions(verifyOptionsSchema, options, 'verifyCorrection options');
   const arrangement = opts.arrangement ?? 'star-bank';
@@ -105,7 +116,7 @@ export function verifyCorrection(board: Board, options: VerifyCorrectionOptions)
   // The target is judged where it is measured: the board, or a metering point the feeders lead up to.
   const meter = meteringPlace(board, target.measuredAt);
   const judged = (b: Board, atBoard?: BoardResult) => (meter ? solveMeter(b, meter, solveOptions) : (atBoard ?? solve(b)));
-  const before = solve(board);
+  const before = Object.keys(solveOptions).length === 0 ? solvedAsIs(board) : solve(board);
   const corrected = addCorrectionEquipment(board, equipment);
   const after = solve(corrected);
   const meteredBefore = judged(board, before);

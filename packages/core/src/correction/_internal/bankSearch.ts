@@ -208,9 +208,22 @@ function bestTrim(branch: number, need: Need, baseF: number, choices: readonly U
   let best: TrimBuild | null = null;
   let bestKey = key(baseF, null);
   const room = rules.maxUnitsPerBranch - baseUnits;
+  // What the window's ends ask of a trim above the balanced part (null: unknown). Called for every
+  // balanced build on every branch, so the counts near them (`countsNear`, capped at the room left,
+  // each once in first-seen order) are gathered in one reused array rather than sets and closures.
+  const rest = [need.minF - baseF, need.nominalF - baseF, need.maxF === null ? null : need.maxF - baseF, need.limitF === null ? null : need.limitF - baseF];
+  const counts: number[] = [];
+  const add = (c: number) => {
+    const capped = Math.min(c, room);
+    if (!counts.includes(capped)) counts.push(capped);
+  };
   for (const choice of choices) {
-    const rest = (f: number | null) => (f === null ? null : f - baseF);
-    const counts = new Set(countsNear([rest(need.minF), rest(need.nominalF), rest(need.maxF), rest(need.limitF)], choice.elementF).map((c) => Math.min(c, room)));
+    counts.length = 0;
+    for (const f of rest) {
+      if (f === null || f <= 0) continue;
+      add(Math.floor(f / choice.elementF + 1e-9));
+      add(Math.ceil(f / choice.elementF - 1e-9));
+    }
     for (const count of counts) {
       if (count < 1) continue;
       const trim = { branch, choice, count };

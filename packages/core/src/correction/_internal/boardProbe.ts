@@ -6,7 +6,7 @@
  */
 import type { Board } from '../../board/boardModel.js';
 import type { BoardResult } from '../../analysis/boardResult.js';
-import { analyseSolution, readLinePowers } from '../../analysis/analyseSolution.js';
+import { analyseSolution, readLinePowers, readSequenceCurrents, type SequenceReading } from '../../analysis/analyseSolution.js';
 import { compileBoard, solveCompiledBoard, solveCompiledInstallation, type CompiledBoard, type NetworkSolution, type SolveOptions } from '../../network/solveNetwork.js';
 import type { MeteringPlace } from '../meteringPoint.js';
 import { addCorrectionEquipment, equipmentGroups, susceptanceFromKvar, type BranchSlot, type EquipmentGroup } from '../equipment.js';
@@ -22,6 +22,8 @@ export interface ProbeState {
   readonly lineP: readonly number[];
   readonly lineQ: readonly number[];
   readonly lineS: readonly number[];
+  /** The equipment's board: sequence currents and positive-sequence power (what a balancing compensator reads); null without three phases. */
+  readonly sequences: SequenceReading | null;
 }
 
 export interface BoardProbe {
@@ -62,10 +64,11 @@ export function createProbe(board: Board, slots: readonly BranchSlot[], name: st
       count++;
       const board = addCorrectionEquipment(base, groups(kvar));
       const { solution, metering } = solveEquipped(board, solve, meter);
-      // Most trial solves are read for line powers only: the whole analysis waits until asked for.
+      // Most trial solves are read for line powers (or the bank board's sequence currents) only: the whole analysis waits until asked for.
       const lines = readLinePowers(metering ?? solution);
       let result: BoardResult | undefined;
       let metered: BoardResult | undefined;
+      let sequences: SequenceReading | null | undefined;
       const bankResult = () => (result ??= analyseSolution(solution));
       return {
         kvar: [...kvar],
@@ -75,6 +78,9 @@ export function createProbe(board: Board, slots: readonly BranchSlot[], name: st
         },
         get metered() {
           return metering ? (metered ??= analyseSolution(metering)) : bankResult();
+        },
+        get sequences() {
+          return sequences === undefined ? (sequences = readSequenceCurrents(solution)) : sequences;
         },
         lineP: lines.map((p) => p.kW),
         lineQ: lines.map((p) => p.kvar),

@@ -103,7 +103,7 @@ export function solveCapacitorOnlyCompensator(probe: BoardProbe, bases: Residual
     const limits = settings.balanceLimits;
     if (limits && !balanceDropped) {
       // Radii in residual units (per unit of the uncorrected |I1|), from the present |I1|.
-      const i1 = state.result.sequences ? Math.hypot(state.result.sequences.current.positive.re, state.result.sequences.current.positive.im) / bases.currentA : 0;
+      const i1 = state.sequences ? Math.hypot(state.sequences.current.positive.re, state.sequences.current.positive.im) / bases.currentA : 0;
       const circles = [{ at: 0, t: limits.negativeSequence * i1 }, ...(bases.includeZeroSequence && limits.zeroSequence !== null ? [{ at: 2, t: limits.zeroSequence * i1 }] : [])];
       for (const circle of circles) {
         const held = circleRows(jy, offset, circle.at, circle.t);

@@ -20,8 +20,8 @@ export interface ResidualBases {
 }
 
 export function compensatorResidual(state: ProbeState, bases: ResidualBases): number[] {
-  const seq = state.result.sequences;
-  const ps = state.result.powerFactor.positiveSequence;
+  const seq = state.sequences;
+  const ps = seq?.positiveSequence;
   if (!seq || !ps) throw new Error('internal error: a balancing compensator needs a three-phase board (checked by the options rules)');
   const i2 = seq.current.negative;
   const i0 = seq.current.zero;

@@ -18,7 +18,11 @@ export interface EqualShareWindow {
 
 const BISECTIONS = 50;
 
-export function equalShareWindow(probe: BoardProbe, start: ProbeState, targetBands: readonly LineBand[], limitBands: readonly LineBand[]): EqualShareWindow {
+/**
+ * @param limitOnly find t_limit only (minKvar is then null): a light-load sizing is read for its limit
+ *   alone, what the fixed part may take
+ */
+export function equalShareWindow(probe: BoardProbe, start: ProbeState, targetBands: readonly LineBand[], limitBands: readonly LineBand[], limitOnly = false): EqualShareWindow {
   const n = probe.slots.length;
   const at = (t: number) => probe.at(new Array<number>(n).fill(t));
   const weights = start.lineS.map((s) => Math.max(s, 1e-6 * Math.max(...start.lineS)));
@@ -40,6 +44,7 @@ export function equalShareWindow(probe: BoardProbe, start: ProbeState, targetBan
     else bad = mid;
   }
   const limitKvar = ok;
+  if (limitOnly) return { minKvar: null, limitKvar };
   if (meets(start)) return { minKvar: 0, limitKvar };
   if (!meets(at(limitKvar))) return { minKvar: null, limitKvar };
   let lo = 0;

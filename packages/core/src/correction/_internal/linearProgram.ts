@@ -9,7 +9,7 @@
  * next breaks ties among vertices equal in the first, and so on — the optimum
  * of a lexicographic LP over a pointed polyhedron is always a vertex.
  */
-import { dot, solveLinearInPlace, subsets } from './realMatrix.js';
+import { dot, nextSubset, solveLinearInPlace } from './realMatrix.js';
 
 export interface LinearProgram {
   /** Each row: coefficients of one constraint `row·z ≤ bound`. */
@@ -48,23 +48,38 @@ function normalised(lp: LinearProgram): { rows: number[][]; bounds: number[] } {
 export function solveLinearProgram(lp: LinearProgram): number[] | null {
   const d = lp.objectives[0]?.length ?? 0;
   const { rows, bounds } = normalised(lp);
+  const m = rows.length;
   const scale = Math.max(1e-12, ...bounds.map(Math.abs));
   let best: number[] | null = null;
   let bestValues: number[] = [];
+  if (d > m) return best;
+  // The rows on one typed array, read by the loop below over every choice of d active rows (a
+  // sizing loop solves a dozen of these programmes cold, each with a few hundred vertices).
+  const flat = Float64Array.from(rows.flat());
   // Every vertex candidate's system in one typed work area (bit-identical to solveLinear, see solveLinearInPlace).
   const system = new Float64Array(d * (d + 1));
   const rowOf = new Int32Array(d);
   const solution = new Float64Array(d);
-  for (const active of subsets(rows.length, d)) {
+  const active = new Int32Array(d);
+  for (let i = 0; i < d; i++) active[i] = i;
+  for (let more = true; more; more = nextSubset(active, d, m)) {
     for (let r = 0; r < d; r++) {
-      const row = rows[active[r]!]!;
-      for (let c = 0; c < d; c++) system[r * (d + 1) + c] = row[c]!;
+      const row = active[r]! * d;
+      for (let c = 0; c < d; c++) system[r * (d + 1) + c] = flat[row + c]!;
       system[r * (d + 1) + d] = bounds[active[r]!]!;
     }
     if (!solveLinearInPlace(system, d, rowOf, solution)) continue;
+    let zScale = scale;
+    for (let c = 0; c < d; c++) zScale = Math.max(zScale, Math.abs(solution[c]!));
+    // Every row·z ≤ bound (within tolerance), each dot product summed left to right from 0 as `dot` sums it.
+    let feasible = true;
+    for (let i = 0; i < m && feasible; i++) {
+      let s = 0;
+      for (let c = 0; c < d; c++) s = s + flat[i * d + c]! * solution[c]!;
+      feasible = s <= bounds[i]! + FEASIBILITY * zScale;
+    }
+    if (!feasible) continue;
     const z = Array.from(solution);
-    const zScale = Math.max(scale, ...z.map(Math.abs));
-    if (!rows.every((row, i) => dot(row, z) <= bounds[i]! + FEASIBILITY * zScale)) continue;
     const values = lp.objectives.map((c) => dot(c, z));
     if (!best || isBetter(values, bestValues)) {
       best = z;

@@ -8,7 +8,7 @@
  * most a few hundred 12×12 solves — simpler and more predictable than an
  * iterative active-set or projected-gradient code at this size.
  */
-import { dot, multiplyVector, solveLinearInPlace, subsets } from './realMatrix.js';
+import { nextSubset, solveLinearInPlace } from './realMatrix.js';
 
 export interface QuadraticProgram {
   readonly h: readonly (readonly number[])[];
@@ -25,14 +25,18 @@ export interface QuadraticProgram {
  */
 const TOLERANCE = 1e-12;
 
-const objective = (qp: QuadraticProgram, x: readonly number[]) => 0.5 * dot(x, multiplyVector(qp.h, x)) + dot(qp.c, x);
-
 /** The optimum, or null when the constraints cannot all be met. */
 export function solveQuadraticProgram(qp: QuadraticProgram): number[] | null {
   const n = qp.c.length;
   const m = qp.rows.length;
   const norms = qp.rows.map((r) => Math.hypot(...r) || 1);
   const scale = Math.max(1, ...qp.c.map(Math.abs), ...qp.h.flat().map(Math.abs));
+  // The programme on typed arrays, read in the loops below: the same values (rows of small integers
+  // and of fractions alike), one element kind, so the loops over thousands of active sets stay fast.
+  const h = Float64Array.from(qp.h.flat());
+  const c = Float64Array.from(qp.c);
+  const rows = Float64Array.from(qp.rows.flat());
+  const bounds = Float64Array.from(qp.bounds);
   let best: number[] | null = null;
   let bestValue = Infinity;
   // Thousands of KKT systems per call: one typed work area for all (see solveLinearInPlace).
@@ -40,35 +44,56 @@ export function solveQuadraticProgram(qp: QuadraticProgram): number[] | null {
   const kkt = new Float64Array(largest * (largest + 1));
   const rowOf = new Int32Array(largest);
   const sol = new Float64Array(largest);
+  const hx = new Float64Array(n);
+  const active = new Int32Array(Math.min(n, m));
   for (let k = 0; k <= Math.min(n, m); k++) {
     const size = n + k;
     const w = size + 1;
-    for (const active of subsets(m, k)) {
+    // Every k-element subset of the constraints in lexicographic order, held in `active`.
+    for (let i = 0; i < k; i++) active[i] = i;
+    for (let more = true; more; more = nextSubset(active, k, m)) {
       // [H  −Aᵀ] [x]   [−c]
       // [A   0 ] [λ] = [ b]
       kkt.fill(0, 0, size * w);
       for (let i = 0; i < n; i++) {
-        for (let j = 0; j < n; j++) kkt[i * w + j] = qp.h[i]![j]!;
-        kkt[i * w + size] = -qp.c[i]!;
+        for (let j = 0; j < n; j++) kkt[i * w + j] = h[i * n + j]!;
+        kkt[i * w + size] = -c[i]!;
       }
       for (let a = 0; a < k; a++) {
-        const row = qp.rows[active[a]!]!;
+        const row = active[a]! * n;
         for (let j = 0; j < n; j++) {
-          kkt[(n + a) * w + j] = row[j]!;
-          kkt[j * w + n + a] = -row[j]!;
+          kkt[(n + a) * w + j] = rows[row + j]!;
+          kkt[j * w + n + a] = -rows[row + j]!;
         }
-        kkt[(n + a) * w + size] = qp.bounds[active[a]!]!;
+        kkt[(n + a) * w + size] = bounds[active[a]!]!;
       }
       if (!solveLinearInPlace(kkt, size, rowOf, sol)) continue;
       let negative = false;
       for (let a = 0; a < k; a++) if (sol[n + a]! < -TOLERANCE * scale) negative = true;
       if (negative) continue;
-      const x = Array.from(sol.subarray(0, n));
-      const xScale = Math.max(1, ...x.map(Math.abs));
-      if (!qp.rows.every((row, i) => dot(row, x) >= qp.bounds[i]! - TOLERANCE * norms[i]! * xScale)) continue;
-      const value = objective(qp, x);
+      let xScale = 1;
+      for (let j = 0; j < n; j++) xScale = Math.max(xScale, Math.abs(sol[j]!));
+      // Every row·x ≥ bound (within tolerance), each dot product summed left to right from 0 as `dot` sums it.
+      let feasible = true;
+      for (let i = 0; i < m && feasible; i++) {
+        let s = 0;
+        for (let j = 0; j < n; j++) s = s + rows[i * n + j]! * sol[j]!;
+        feasible = s >= bounds[i]! - TOLERANCE * norms[i]! * xScale;
+      }
+      if (!feasible) continue;
+      // ½·xᵀHx + cᵀx, summed in the order `0.5 * dot(x, multiplyVector(h, x)) + dot(c, x)` sums it.
+      for (let i = 0; i < n; i++) {
+        let s = 0;
+        for (let j = 0; j < n; j++) s = s + h[i * n + j]! * sol[j]!;
+        hx[i] = s;
+      }
+      let xhx = 0;
+      let cx = 0;
+      for (let j = 0; j < n; j++) xhx = xhx + sol[j]! * hx[j]!;
+      for (let j = 0; j < n; j++) cx = cx + c[j]! * sol[j]!;
+      const value = 0.5 * xhx + cx;
       if (value < bestValue) {
-        best = x;
+        best = Array.from(sol.subarray(0, n));
         bestValue = value;
       }
     }

@@ -85,16 +85,15 @@ export const dot = (u: readonly number[], v: readonly number[]): number => u.red
 
 export const maxAbs = (v: readonly number[]): number => v.reduce((m, x) => Math.max(m, Math.abs(x)), 0);
 
-/** Every k-element subset of {0 … n−1}, in lexicographic order. */
-export function* subsets(n: number, k: number): Generator<number[]> {
-  if (k > n || k < 0) return;
-  const pick = Array.from({ length: k }, (_, i) => i);
-  for (;;) {
-    yield [...pick];
-    let i = k - 1;
-    while (i >= 0 && pick[i] === n - k + i) i--;
-    if (i < 0) return;
-    pick[i]!++;
-    for (let j = i + 1; j < k; j++) pick[j] = pick[j - 1]! + 1;
-  }
+/**
+ * Moves `pick` (k increasing indices below n) to the next k-element subset in lexicographic order, in
+ * place; false after the last. Start from 0 … k−1.
+ */
+export function nextSubset(pick: Int32Array, k: number, n: number): boolean {
+  let i = k - 1;
+  while (i >= 0 && pick[i] === n - k + i) i--;
+  if (i < 0) return false;
+  pick[i]!++;
+  for (let j = i + 1; j < k; j++) pick[j] = pick[j - 1]! + 1;
+  return true;
 }

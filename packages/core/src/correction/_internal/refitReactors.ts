@@ -38,6 +38,26 @@ export interface RefitOutcome extends ReactorResizing {
   readonly equipment: EquipmentGroup[];
 }
 
+/** A probe state read with the given outputs; its analysis and sequence reading stay lazy (a spread would run them). */
+function withOutputs(state: ProbeState, kvar: readonly number[]): ProbeState {
+  return {
+    kvar: [...kvar],
+    board: state.board,
+    get result() {
+      return state.result;
+    },
+    get metered() {
+      return state.metered;
+    },
+    get sequences() {
+      return state.sequences;
+    },
+    lineP: state.lineP,
+    lineQ: state.lineQ,
+    lineS: state.lineS,
+  };
+}
+
 /** The reactors of `built` re-sized to its capacitors; null when it has no reactor. */
 export function refitReactors(board: Board, built: readonly EquipmentGroup[], input: ReactorRefitInput): RefitOutcome | null {
   const slots: BranchSlot[] = [];
@@ -68,7 +88,7 @@ export function refitReactors(board: Board, built: readonly EquipmentGroup[], in
   const probe: BoardProbe = {
     slots,
     base,
-    at: (kvar) => ({ ...inner.at(kvar.map((q) => -q)), kvar: [...kvar] }),
+    at: (kvar) => withOutputs(inner.at(kvar.map((q) => -q)), kvar),
     groups: (kvar) => inner.groups(kvar.map((q) => -q)),
     solves: inner.solves,
   };

@@ -22,6 +22,11 @@ export interface ResolvedBankOptions {
   readonly share: 'equal' | 'proportional';
   readonly solve: SolveOptions;
   readonly loop: LoopSettings;
+  /**
+   * A light-load sizing, read only for its limits and applied voltages (selectBankUnits' `lightLoad`):
+   * an equal bank's window is then found up to its limit only (`equalShare.minKvar` null).
+   */
+  readonly limitsOnly?: boolean;
 }
 
 export function sizeBank(board: Board, arrangement: BankSizing['arrangement'], slots: readonly BranchSlot[], options: ResolvedBankOptions): BankSizing {
@@ -45,7 +50,7 @@ export function sizeBank(board: Board, arrangement: BankSizing['arrangement'], s
   // Equal delta and equal star branches of the same kvar are Y–Δ equivalents, so the window carries over.
   let equalShare: EqualShareWindow | null = null;
   const equalWindow = () => {
-    if (perLineTarget && slots.length === 3 && start.result.totals.kW > 0) equalShare = equalShareWindow(probe, start, lineBands(target, start, 'target'), limitBands);
+    if (perLineTarget && slots.length === 3 && start.result.totals.kW > 0) equalShare = equalShareWindow(probe, start, lineBands(target, start, 'target'), limitBands, options.limitsOnly);
   };
 
   const finish = (sized: ProbeState, sizedLimit: readonly number[] | null, method: string, forced?: { status: BankSizing['status']; reasons: string[] }): BankSizing => {
