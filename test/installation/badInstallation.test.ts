@@ -50,7 +50,6 @@ const installationCases: [string, unknown, string, string, RegExp][] = [
   ['a feeder with a length and no conductor', editInstallation((b) => (b.boards[1].feeder = { lengthM: 30 })), 'missing', 'boards[1].feeder.line', /r: 0, x: 0/],
   ['a feeder with a neutral and no line conductor', editInstallation((b) => delete b.boards[1].feeder.line), 'missing', 'boards[1].feeder.line', /line conductors/],
   ['line conductors without the neutral a load returns through', editInstallation((b) => delete b.boards[1].feeder.neutral), 'missing', 'boards[1].feeder.neutral', /"flat 1" on Floor 1/],
-  ['a service feeder without the neutral a sub-board load returns through', editInstallation((b) => (b.boards[0].feeder = { lengthM: 20, line: { mm2: 95 } })), 'missing', 'boards[0].feeder.neutral', /"flat 1" on Floor 1/],
   // Names head table rows and drawing boxes.
   ['a board name of 101 characters', editInstallation((b) => (b.boards[2].name = 'F'.repeat(101))), 'out_of_range', 'boards[2].name', /at most 100 characters/],
   ['a blank board name', editInstallation((b) => (b.boards[2].name = '   ')), 'invalid_format', 'boards[2].name', /visible character/],
@@ -105,6 +104,12 @@ describe('bad installation input', () => {
       b.boards[2].loads = [{ name: 'pump', connection: 'ABC-delta', kW: 4, pf: 0.85 }];
     });
     expect(validateInstallation(input).ok).toBe(true);
+  });
+  it('the service feeder keeps the board-file rules: a line or a neutral alone is accepted there, as in a board file', () => {
+    for (const feeder of [{ lengthM: 20, line: { mm2: 95 } }, { neutral: { r: 0.05, x: 0.01 } }]) {
+      expect(validateInstallation(editInstallation((b) => (b.boards[0].feeder = feeder))).ok).toBe(true);
+      expect(validateBoard({ ...editBoard((b) => (b.supply.system = 'three-phase-4wire')), feeder }).ok).toBe(true);
+    }
   });
   it.each(installationCases)('%s', (_, input, code, path, wording) => {
     const result = validateInstallation(input);

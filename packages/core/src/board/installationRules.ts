@@ -80,10 +80,12 @@ type BoardSpec = InstallationBaseSpec['boards'][number];
 const usesNeutral = (load: BoardSpec['loads'][number]) => load.connection.endsWith('-N') || (load.connection === 'ABC-star' && load.starPoint !== 'floating');
 
 /**
- * A feeder written with some conductors but not others would leave the missing ones with no
- * impedance: a silently low drop. A length or neutral without a line conductor is refused; so is
- * a line conductor without a neutral where loads on the board or beyond it return through it
- * (a three-core feeder to a board of three-phase loads stays valid).
+ * A sub-board feeder written with some conductors but not others would leave the missing ones
+ * with no impedance: a silently low drop. A length or neutral without a line conductor is refused;
+ * so is a line conductor without a neutral where loads on the board or beyond it return through it
+ * (a three-core feeder to a board of three-phase loads stays valid). The main board's service
+ * feeder keeps a board file's rules (where a neutral or line alone models that conductor's impedance),
+ * so a board file and the same board written as an installation read the same.
  */
 function ruleFeederConductors(spec: InstallationBaseSpec): InputIssue[] {
   const issues: InputIssue[] = [];
@@ -106,7 +108,7 @@ function ruleFeederConductors(spec: InstallationBaseSpec): InputIssue[] {
   };
   spec.boards.forEach((b, i) => {
     const f = b.feeder;
-    if (!f) return;
+    if (!f || b.fedFrom === undefined) return;
     const path = `boards[${i}].feeder`;
     if (!f.line && (f.neutral || f.lengthM !== undefined || f.lengthFt !== undefined)) {
       issues.push(inputIssue('missing', `${path}.line`, 'the line conductors: a size (mm2, awg or kcmil) or rOhmPerKm with the length, or r and x; write r: 0, x: 0 for lines of no impedance'));
