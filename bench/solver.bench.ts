@@ -6,6 +6,10 @@
  * 1. The one-board, three-load network: the solver as it was (bench/baseline), the
  *    public `solveNetwork` (compiles each call), and the compiled path (compile once,
  *    `network.solve()` many times). Goal: compiled ≥ 1e6 solves/s and ≥ 35× the old path.
+ *    Beside it, the same compiled network through the fixed-point iteration alone
+ *    (`solveByFixedPoint`, what `solve` did before it took Newton steps), measured in
+ *    alternating rounds with `solve` so machine load falls on both alike. Every call is
+ *    a cold solve: nothing is carried from one solve to the next.
  * 2. A board with 2,000 loads of which 400 are floating stars: old against new.
  * 3. A generated 20-board, 2,000-load installation (fixed seed). Goal: solves in < 50 ms.
  * 4. CLI: `trivar solve` on a 1,000-load board (JSON, and the same board as YAML) and
@@ -24,22 +28,40 @@ import { solveNetwork as solveNetworkBefore } from './baseline/solveNetworkBefor
 const quick = process.argv.includes('--quick');
 const budgetMs = quick ? 150 : 600;
 
+/** One round: calls `fn` for about a third of `budgetMs`, returns calls per second. */
+function roundRate(fn: () => void): number {
+  let calls = 0;
+  const start = performance.now();
+  let elapsed = 0;
+  do {
+    for (let i = 0; i < 20; i++) fn();
+    calls += 20;
+    elapsed = performance.now() - start;
+  } while (elapsed < budgetMs / 3);
+  return (calls * 1000) / elapsed;
+}
+
 /** Calls `fn` repeatedly for about `budgetMs`, returns calls per second (best of three rounds). */
 function rate(fn: () => void): number {
   for (let i = 0; i < 50; i++) fn();
   let best = 0;
-  for (let round = 0; round < 3; round++) {
-    let calls = 0;
-    const start = performance.now();
-    let elapsed = 0;
-    do {
-      for (let i = 0; i < 20; i++) fn();
-      calls += 20;
-      elapsed = performance.now() - start;
-    } while (elapsed < budgetMs / 3);
-    best = Math.max(best, (calls * 1000) / elapsed);
-  }
+  for (let round = 0; round < 3; round++) best = Math.max(best, roundRate(fn));
   return best;
+}
+
+/** Calls per second of `a` and of `b`, measured in alternating rounds (best round of each). */
+function ratePair(a: () => void, b: () => void): [number, number] {
+  for (let i = 0; i < 50; i++) {
+    a();
+    b();
+  }
+  let bestA = 0;
+  let bestB = 0;
+  for (let round = 0; round < 3; round++) {
+    bestA = Math.max(bestA, roundRate(a));
+    bestB = Math.max(bestB, roundRate(b));
+  }
+  return [bestA, bestB];
 }
 
 /** Median wall time of `fn`, ms. */
@@ -94,11 +116,18 @@ for (const model of ['constant-power', 'constant-impedance'] as const) {
   const before = rate(() => solveNetworkBefore(board));
   const publicPath = rate(() => solveNetwork(board));
   const compiled = compileBoard(board);
-  const compiledRate = rate(() => compiled.network.solve());
+  const [compiledRate, fixedPointRate] = ratePair(
+    () => compiled.network.solve(),
+    () => compiled.network.solveByFixedPoint(),
+  );
+  compiled.network.solve();
+  const { iterations, method } = compiled.network;
+  compiled.network.solveByFixedPoint();
   console.log(`   ${model}:`);
   console.log(`     before (dense MNA, rebuilt each call)   ${fmt(before)} /s`);
   console.log(`     solveNetwork (compiles each call)        ${fmt(publicPath)} /s   ${(publicPath / before).toFixed(1)}x`);
-  console.log(`     compiled network.solve()                 ${fmt(compiledRate)} /s   ${(compiledRate / before).toFixed(1)}x   (goal >= 1e6 /s, >= 35x)`);
+  console.log(`     compiled network.solve()                 ${fmt(compiledRate)} /s   ${(compiledRate / before).toFixed(1)}x   (goal >= 1e6 /s, >= 35x; ${method}, ${iterations} linear solves)`);
+  console.log(`     compiled, fixed-point iteration only     ${fmt(fixedPointRate)} /s   solve() is ${(compiledRate / fixedPointRate).toFixed(2)}x it (${compiled.network.iterations} linear solves)`);
 }
 
 console.log('');

@@ -214,40 +214,14 @@ export function solveFactored(
   xRe: Float64Array,
   xIm: Float64Array,
 ): void {
-  const { order, diagonal, neighbourStart, neighbourPosition, lowerSlot, upperSlot } = p;
+  const { order } = p;
   const n = p.size;
   // Work in elimination order inside xRe/xIm.
   for (let k = 0; k < n; k++) {
     xRe[k] = bRe[order[k]!]!;
     xIm[k] = bIm[order[k]!]!;
   }
-  for (let k = 0; k < n; k++) {
-    const yr = xRe[k]!;
-    const yi = xIm[k]!;
-    if (yr === 0 && yi === 0) continue;
-    for (let a = neighbourStart[k]!, end = neighbourStart[k + 1]!; a < end; a++) {
-      const i = neighbourPosition[a]!;
-      const ls = lowerSlot[a]!;
-      xRe[i] = xRe[i]! - (re[ls]! * yr - im[ls]! * yi);
-      xIm[i] = xIm[i]! - (re[ls]! * yi + im[ls]! * yr);
-    }
-  }
-  for (let k = n - 1; k >= 0; k--) {
-    let sr = xRe[k]!;
-    let si = xIm[k]!;
-    for (let a = neighbourStart[k]!, end = neighbourStart[k + 1]!; a < end; a++) {
-      const j = neighbourPosition[a]!;
-      const us = upperSlot[a]!;
-      sr -= re[us]! * xRe[j]! - im[us]! * xIm[j]!;
-      si -= re[us]! * xIm[j]! + im[us]! * xRe[j]!;
-    }
-    const d = diagonal[k]!;
-    const dr = re[d]!;
-    const di = im[d]!;
-    const dd = dr * dr + di * di;
-    xRe[k] = (sr * dr + si * di) / dd;
-    xIm[k] = (si * dr - sr * di) / dd;
-  }
+  substituteInOrder(p, re, im, xRe, xIm, 0);
   // Back to unknown numbering: permute through a scratch pass over cycles is fiddly;
   // the callers keep a second buffer, so copy via bRe/bIm (which they no longer need).
   // Plain loops: a subarray view is an allocation, and cost more than the whole solve of a small board.
@@ -258,5 +232,51 @@ export function solveFactored(
   for (let i = 0; i < n; i++) {
     xRe[i] = bRe[i]!;
     xIm[i] = bIm[i]!;
+  }
+}
+
+/**
+ * Forward and back substitution with a factorised matrix, in place on a vector held in
+ * elimination order (entry k is the unknown `order[k]`) at `offset` in `xRe/xIm`:
+ * callers that build their right-hand side by position skip the two permutations.
+ */
+export function substituteInOrder(p: SparsePattern, re: Float64Array, im: Float64Array, xRe: Float64Array, xIm: Float64Array, offset: number): void {
+  forwardInOrder(p, re, im, xRe, xIm, offset);
+  const { diagonal, neighbourStart, neighbourPosition, upperSlot } = p;
+  for (let k = p.size - 1; k >= 0; k--) {
+    let sr = xRe[offset + k]!;
+    let si = xIm[offset + k]!;
+    for (let a = neighbourStart[k]!, end = neighbourStart[k + 1]!; a < end; a++) {
+      const j = offset + neighbourPosition[a]!;
+      const us = upperSlot[a]!;
+      sr -= re[us]! * xRe[j]! - im[us]! * xIm[j]!;
+      si -= re[us]! * xIm[j]! + im[us]! * xRe[j]!;
+    }
+    const d = diagonal[k]!;
+    const dr = re[d]!;
+    const di = im[d]!;
+    const dd = dr * dr + di * di;
+    xRe[offset + k] = (sr * dr + si * di) / dd;
+    xIm[offset + k] = (si * dr - sr * di) / dd;
+  }
+}
+
+/**
+ * The forward half: x ← L⁻¹·x (L unit lower triangular), in place, in elimination order.
+ * For a complex-symmetric matrix (every nodal matrix here), U = D·Lᵀ with D the pivots,
+ * so aᵀ·A⁻¹·b = (L⁻¹a)ᵀ·D⁻¹·(L⁻¹b): transfer impedances need no back substitution.
+ */
+export function forwardInOrder(p: SparsePattern, re: Float64Array, im: Float64Array, xRe: Float64Array, xIm: Float64Array, offset: number): void {
+  const { neighbourStart, neighbourPosition, lowerSlot } = p;
+  for (let k = 0; k < p.size; k++) {
+    const yr = xRe[offset + k]!;
+    const yi = xIm[offset + k]!;
+    if (yr === 0 && yi === 0) continue;
+    for (let a = neighbourStart[k]!, end = neighbourStart[k + 1]!; a < end; a++) {
+      const i = offset + neighbourPosition[a]!;
+      const ls = lowerSlot[a]!;
+      xRe[i] = xRe[i]! - (re[ls]! * yr - im[ls]! * yi);
+      xIm[i] = xIm[i]! - (re[ls]! * yi + im[ls]! * yr);
+    }
   }
 }

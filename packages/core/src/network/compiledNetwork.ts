@@ -12,14 +12,16 @@
  *
  * The fixed-point iteration for voltage-dependent loads is the one described in
  * solveNetwork.ts; it lives here so every caller (board solve, installation
- * solve, correction sizing, batches) shares it.
+ * solve, correction sizing, batches) shares it, and so does the Newton-type
+ * shortcut to the same state (`solveByMagnitudes`).
  */
 import { NumericalError } from '../errors.js';
 import type { ComplexValue } from '../complex.js';
 import { leastDeterminedUnknown, solveComplexSystem } from '../_internal/complexLu.js';
-import { analysePattern, factorInPlace, solveFactored, type SparsePattern } from '../_internal/sparseComplexLu.js';
+import { analysePattern, factorInPlace, forwardInOrder, substituteInOrder, type SparsePattern } from '../_internal/sparseComplexLu.js';
+import { factorRealInPlace, solveRealFactored } from '../_internal/denseRealLu.js';
 import { REFERENCE, type Circuit } from './circuit.js';
-import { resolveSolveOptions, type SolveOptions } from './solveOptions.js';
+import { resolveSolveOptions, type ResolvedSolveOptions, type SolveOptions } from './solveOptions.js';
 
 
 /** The defaults, resolved once: a re-solve of a small network costs about a microsecond. */
@@ -29,6 +31,16 @@ const DEFAULT_OPTIONS = resolveSolveOptions();
 const SPARSE_PIVOT_FLOOR = 1e-11;
 /** A voltage change (fraction of nominal) this small is round-off: the iteration has settled. */
 const ROUND_OFF_CHANGE = 1e-14;
+
+/**
+ * Newton on the load magnitudes is used up to this many node pairs carrying
+ * voltage-dependent loads (a board has at most six, plus three per floating star).
+ */
+const MAX_PAIRS = 12;
+/** Newton's answer is kept only where the fixed-point iteration contracts this fast (row sums of |φ'|). */
+const CONTRACTION_LIMIT = 0.5;
+/** Linear solves the Newton path may take before handing the solve to the fixed-point iteration. */
+const MAX_NEWTON_SOLVES = 8;
 
 const NODE_FREE = 1;
 const NODE_FIXED = 2;
@@ -59,10 +71,14 @@ export class CompiledNetwork {
   /** Iterations and last voltage change (fraction of base) of the last solve. */
   iterations = 0;
   lastChange = 0;
+  /** How the last solve ran: one linear solve, Newton on the load magnitudes, or the fixed-point iteration. */
+  method: 'linear' | 'newton' | 'fixed-point' = 'linear';
 
   private readonly kind: Int8Array;
   private readonly unknownOf: Int32Array;
   private readonly nodeOfUnknown: Int32Array;
+  /** Node of the unknown at each elimination position (the order `xRe/xIm` keep). */
+  private readonly nodeAtPosition: Int32Array;
   private readonly pattern: SparsePattern;
   private readonly baseRe: Float64Array;
   private readonly baseIm: Float64Array;
@@ -87,6 +103,33 @@ export class CompiledNetwork {
   private readonly zipI: Float64Array;
   private readonly zipP: Float64Array;
   private readonly allImpedance: boolean;
+  // Newton on magnitudes (see solveByMagnitudes): one pair per node pair with a voltage-dependent branch.
+  private readonly pairCount: number;
+  private readonly pairOf: Int32Array;
+  private readonly pairFrom: Int32Array;
+  private readonly pairTo: Int32Array;
+  /** Elimination position of each pair's two nodes (-1: the reference or a node an ideal EMF fixes). */
+  private readonly pairPositionFrom: Int32Array;
+  private readonly pairPositionTo: Int32Array;
+  private readonly pairNominal: Float64Array;
+  private readonly magnitude: Float64Array;
+  private readonly slopeRe: Float64Array;
+  private readonly slopeIm: Float64Array;
+  private readonly residual: Float64Array;
+  /** Each pair's voltage (from − to) in the last solve, and the current (dY/dm)·v the Jacobian uses. */
+  private readonly pairRe: Float64Array;
+  private readonly pairIm: Float64Array;
+  private readonly driveRe: Float64Array;
+  private readonly driveIm: Float64Array;
+  private readonly transferRe: Float64Array;
+  private readonly transferIm: Float64Array;
+  private readonly jacobian: Float64Array;
+  private readonly pivots: Int32Array;
+  private readonly columnRe: Float64Array;
+  private readonly columnIm: Float64Array;
+  private factored = false;
+  /** Set by admittancesAtMagnitudes: a voltage-dependent branch is held below the low-voltage threshold. */
+  private held = false;
 
   constructor(circuit: Circuit) {
     this.circuit = circuit;
@@ -161,6 +204,7 @@ export class CompiledNetwork {
     });
     this.pattern = analysePattern(size, pairs);
     const p = this.pattern;
+    this.nodeAtPosition = Int32Array.from(p.order, (u) => this.nodeOfUnknown[u]!);
     this.diagonalSlots = new Int32Array(size);
     for (let i = 0; i < size; i++) this.diagonalSlots[i] = p.slotOf(i, i);
 
@@ -232,6 +276,50 @@ export class CompiledNetwork {
     this.previousIm = new Float64Array(size);
     this.admittanceRe = new Float64Array(m);
     this.admittanceIm = new Float64Array(m);
+
+    // Node pairs carrying voltage-dependent branches (loads of one connection share one).
+    this.pairOf = new Int32Array(m).fill(-1);
+    const pairKey = new Map<number, number>();
+    const pairFrom: number[] = [];
+    const pairTo: number[] = [];
+    const pairNominal: number[] = [];
+    for (let k = 0; k < m; k++) {
+      if (!this.bActive[k] || (this.zipI[k] === 0 && this.zipP[k] === 0)) continue;
+      const a = this.bFrom[k]!;
+      const b = this.bTo[k]!;
+      const key = (Math.min(a, b) + 1) * (n + 1) + Math.max(a, b) + 1;
+      let pair = pairKey.get(key);
+      if (pair === undefined) {
+        pair = pairFrom.push(a) - 1;
+        pairTo.push(b);
+        pairNominal.push(this.vNominal[k]!);
+        pairKey.set(key, pair);
+      }
+      this.pairOf[k] = pair;
+    }
+    const q = pairFrom.length;
+    this.pairCount = q;
+    this.pairFrom = new Int32Array(pairFrom);
+    this.pairTo = new Int32Array(pairTo);
+    this.pairNominal = new Float64Array(pairNominal);
+    const positionOf = (v: number) => (v === REFERENCE || this.unknownOf[v]! < 0 ? -1 : p.position[this.unknownOf[v]!]!);
+    this.pairPositionFrom = Int32Array.from(pairFrom, positionOf);
+    this.pairPositionTo = Int32Array.from(pairTo, positionOf);
+    const newton = q <= MAX_PAIRS ? q : 0;
+    this.magnitude = new Float64Array(newton);
+    this.slopeRe = new Float64Array(newton);
+    this.slopeIm = new Float64Array(newton);
+    this.residual = new Float64Array(newton);
+    this.pairRe = new Float64Array(newton);
+    this.pairIm = new Float64Array(newton);
+    this.driveRe = new Float64Array(newton);
+    this.driveIm = new Float64Array(newton);
+    this.transferRe = new Float64Array(newton * newton);
+    this.transferIm = new Float64Array(newton * newton);
+    this.jacobian = new Float64Array(newton * newton);
+    this.pivots = new Int32Array(newton);
+    this.columnRe = new Float64Array(newton * size);
+    this.columnIm = new Float64Array(newton * size);
   }
 
   /** Number of unknowns the linear solves work on. */
@@ -305,12 +393,21 @@ export class CompiledNetwork {
       if (size > scale) scale = size;
     }
     const failed = factorInPlace(p, re, im, SPARSE_PIVOT_FLOOR, scale);
+    this.factored = failed < 0;
     if (failed >= 0) this.solveDense();
-    else solveFactored(p, re, im, this.rhsRe, this.rhsIm, this.xRe, this.xIm);
-    for (let i = 0; i < p.size; i++) {
-      const v = this.nodeOfUnknown[i]!;
-      this.voltageRe[v] = this.xRe[i]!;
-      this.voltageIm[v] = this.xIm[i]!;
+    else {
+      // The unknowns stay in elimination order (`x`), which saves permuting them back each solve.
+      const order = p.order;
+      for (let k = 0; k < p.size; k++) {
+        this.xRe[k] = this.rhsRe[order[k]!]!;
+        this.xIm[k] = this.rhsIm[order[k]!]!;
+      }
+      substituteInOrder(p, re, im, this.xRe, this.xIm, 0);
+    }
+    for (let k = 0; k < p.size; k++) {
+      const v = this.nodeAtPosition[k]!;
+      this.voltageRe[v] = this.xRe[k]!;
+      this.voltageIm[v] = this.xIm[k]!;
     }
   }
 
@@ -392,19 +489,43 @@ export class CompiledNetwork {
       );
     }
     result.x.forEach((x, i) => {
-      this.xRe[i] = x.re;
-      this.xIm[i] = x.im;
+      this.xRe[p.position[i]!] = x.re;
+      this.xIm[p.position[i]!] = x.im;
     });
   }
 
   /**
-   * Solves the network: the fixed-point iteration over the load admittances
-   * (a single linear solve when every branch is constant impedance). Results are
-   * left in `voltageRe/Im`, `admittanceRe/Im`, `iterations`, `lastChange`.
+   * Solves the network: the fixed-point iteration over the load admittances (a
+   * single linear solve when every branch is constant impedance), or where it is
+   * sure to reach the same state, Newton's method on the load magnitudes
+   * (`solveByMagnitudes`). Results are left in `voltageRe/Im`, `admittanceRe/Im`,
+   * `iterations`, `lastChange`, `method`.
    * @throws {NumericalError} for a singular network or an iteration that does not settle.
    */
   solve(solveOptions?: SolveOptions): void {
     const options = solveOptions === undefined ? DEFAULT_OPTIONS : resolveSolveOptions(solveOptions);
+    if (this.allImpedance || !(this.pairCount <= MAX_PAIRS && this.solveByMagnitudes(options))) this.iterate(options);
+    this.assertFinite();
+  }
+
+  /**
+   * The fixed-point iteration alone: the reference the Newton path is checked
+   * against, and where `solve` goes when Newton declines.
+   * @throws {NumericalError} for a singular network or an iteration that does not settle.
+   */
+  solveByFixedPoint(solveOptions?: SolveOptions): void {
+    this.iterate(solveOptions === undefined ? DEFAULT_OPTIONS : resolveSolveOptions(solveOptions));
+    this.assertFinite();
+  }
+
+  private assertFinite(): void {
+    for (let i = 0; i < this.pattern.size; i++)
+      if (!Number.isFinite(this.xRe[i]!) || !Number.isFinite(this.xIm[i]!))
+        throw new NumericalError('non-finite', 'the solve produced a non-finite voltage; check for extreme impedance values');
+  }
+
+  /** The fixed-point iteration described in solveNetwork.ts. */
+  private iterate(options: ResolvedSolveOptions): void {
     const threshold = options.lowVoltageThreshold;
     this.updateAdmittances(true, threshold);
     this.solveLinear();
@@ -412,26 +533,13 @@ export class CompiledNetwork {
     let lastChange = 0;
     if (!this.allImpedance) {
       const vBase = this.circuit.voltageBase;
-      const size = this.pattern.size;
-      const prevRe = this.previousRe;
-      const prevIm = this.previousIm;
       let previousChange = 0;
       for (;;) {
-        for (let i = 0; i < size; i++) {
-          prevRe[i] = this.xRe[i]!;
-          prevIm[i] = this.xIm[i]!;
-        }
+        this.keepVoltages();
         this.updateAdmittances(false, threshold);
         this.solveLinear();
         iterations++;
-        let change2 = 0;
-        for (let i = 0; i < size; i++) {
-          const dr = this.xRe[i]! - prevRe[i]!;
-          const di = this.xIm[i]! - prevIm[i]!;
-          const d2 = dr * dr + di * di;
-          if (d2 > change2 || Number.isNaN(d2)) change2 = d2;
-        }
-        lastChange = Math.sqrt(change2) / vBase;
+        lastChange = this.change() / vBase;
         if (!Number.isFinite(lastChange)) throw new NumericalError('non-finite', `the load iteration produced non-finite voltages at iteration ${iterations}`);
         // A fixed-point step that shrinks by `ratio` each time leaves an error of about
         // change·ratio/(1 − ratio): stop on that estimate, not on the step alone, so slowly
@@ -447,11 +555,230 @@ export class CompiledNetwork {
           );
       }
     }
-    for (let i = 0; i < this.pattern.size; i++)
-      if (!Number.isFinite(this.xRe[i]!) || !Number.isFinite(this.xIm[i]!))
-        throw new NumericalError('non-finite', 'the solve produced a non-finite voltage; check for extreme impedance values');
     this.iterations = iterations;
     this.lastChange = lastChange;
+    this.method = this.allImpedance ? 'linear' : 'fixed-point';
+  }
+
+  /** Copies the unknowns' voltages aside, for `change`. */
+  private keepVoltages(): void {
+    for (let i = 0; i < this.pattern.size; i++) {
+      this.previousRe[i] = this.xRe[i]!;
+      this.previousIm[i] = this.xIm[i]!;
+    }
+  }
+
+  /** Largest node-voltage change since `keepVoltages`, V (NaN when a voltage is not finite). */
+  private change(): number {
+    let change2 = 0;
+    for (let i = 0; i < this.pattern.size; i++) {
+      const dr = this.xRe[i]! - this.previousRe[i]!;
+      const di = this.xIm[i]! - this.previousIm[i]!;
+      const d2 = dr * dr + di * di;
+      if (d2 > change2 || Number.isNaN(d2)) change2 = d2;
+    }
+    return Math.sqrt(change2);
+  }
+
+  /**
+   * Newton's method on the voltage magnitude of each node pair that carries a
+   * voltage-dependent branch. The branch admittances hang on nothing else, so these
+   * few numbers m are the whole non-linear problem, and the fixed-point iteration is
+   * m → φ(m), the pairs' voltage magnitudes in the linear solve with the admittances
+   * for m. The first solve (at nominal magnitudes, where that iteration starts too)
+   * also gives, with one substitution per pair on the same factors, the derivative
+   * of the node voltages with respect to each pair's magnitude (dV/dm = −Y⁻¹·e·(dY/dm)·v),
+   * hence φ'. Each later solve moves the magnitudes by (I − φ')⁻¹·(φ(m) − m) with
+   * that φ' (a chord Newton step: φ' barely changes over the few steps, and keeping
+   * it costs no further substitutions). The state is kept only where the fixed-point
+   * iteration contracts at the start (every row sum of |φ'| below CONTRACTION_LIMIT),
+   * the steps shrink, and no load is ever held below the low-voltage threshold: then
+   * it is the state that iteration settles on. It stops on the same estimate of the
+   * error left (last change × the rate changes shrink). Returns false, with nothing
+   * reported, to hand the solve to the fixed-point iteration, which then gives the
+   * answer or the error it always gave.
+   */
+  private solveByMagnitudes(options: ResolvedSolveOptions): boolean {
+    const q = this.pairCount;
+    const threshold = options.lowVoltageThreshold;
+    const vBase = this.circuit.voltageBase;
+    const mag = this.magnitude;
+    const res = this.residual;
+    for (let g = 0; g < q; g++) mag[g] = this.pairNominal[g]!;
+    let previousChange = 0;
+    const most = Math.min(options.maxIterations, MAX_NEWTON_SOLVES);
+    for (let solves = 1; solves <= most; solves++) {
+      this.admittancesAtMagnitudes(threshold, true);
+      if (this.held) return false;
+      this.solveLinear();
+      this.pairResiduals();
+      if (solves > 1) {
+        const change = this.change() / vBase;
+        if (!Number.isFinite(change)) return false;
+        const rate = solves > 2 ? Math.min(1, change / previousChange) : 1;
+        // Settled when the error estimate is within tolerance and the magnitudes the admittances
+        // assumed are the solved ones (as the fixed-point iteration's stop implies): a node voltage
+        // can move far less than a load's assumed magnitude is off.
+        let mismatch = 0;
+        for (let g = 0; g < q; g++) mismatch = Math.max(mismatch, Math.abs(res[g]!));
+        if ((change * rate <= options.tolerance || change <= ROUND_OFF_CHANGE) && mismatch <= options.tolerance * vBase) {
+          this.iterations = solves;
+          this.lastChange = change;
+          this.method = 'newton';
+          return true;
+        }
+        if (solves > 2 && !(rate < 1)) return false;
+        previousChange = change;
+      }
+      if (!this.factored || !this.prepareJacobian()) return false;
+      this.keepVoltages();
+      solveRealFactored(this.jacobian, q, this.pivots, res);
+      for (let g = 0; g < q; g++) {
+        const next = mag[g]! + res[g]!;
+        if (!(next > 0)) return false;
+        mag[g] = next;
+      }
+    }
+    return false;
+  }
+
+  /**
+   * Branch admittances at the pairs' present magnitudes (`magnitude`); with `slopes`,
+   * also each pair's dY/dm (zero where held). Sets `held` when a voltage-dependent
+   * branch is below the low-voltage threshold.
+   */
+  private admittancesAtMagnitudes(threshold: number, slopes: boolean): void {
+    const q = this.pairCount;
+    this.held = false;
+    if (slopes)
+      for (let g = 0; g < q; g++) {
+        this.slopeRe[g] = 0;
+        this.slopeIm[g] = 0;
+      }
+    for (let k = 0; k < this.branchCount; k++) {
+      const v0 = this.vNominal[k]!;
+      const g = this.pairOf[k]!;
+      // As updateAdmittances: a dead branch at zero volts; a constant-impedance one draws the same at any voltage.
+      const v = g >= 0 ? this.magnitude[g]! : this.bActive[k] ? v0 : 0;
+      const floor = threshold * v0;
+      if (g >= 0 && v <= floor) this.held = true;
+      const ratio = v0 / Math.max(v, floor);
+      const zi = this.zipI[k]!;
+      const zp = this.zipP[k]!;
+      const factor = (this.zipZ[k]! + zi * ratio + zp * ratio * ratio) / (v0 * v0);
+      const sr = this.powerRe[k]!;
+      const si = this.powerIm[k]!;
+      this.admittanceRe[k] = sr * factor;
+      this.admittanceIm[k] = -si * factor;
+      if (slopes && g >= 0 && v > floor) {
+        const slope = -(zi * ratio + 2 * zp * ratio * ratio) / (v * v0 * v0);
+        this.slopeRe[g] = this.slopeRe[g]! + sr * slope;
+        this.slopeIm[g] = this.slopeIm[g]! - si * slope;
+      }
+    }
+  }
+
+  /** `residual` ← φ(m) − m: each pair's voltage magnitude in the last solve, less the one assumed. */
+  private pairResiduals(): void {
+    for (let g = 0; g < this.pairCount; g++) {
+      const a = this.pairFrom[g]!;
+      const b = this.pairTo[g]!;
+      const dr = (a === REFERENCE ? 0 : this.voltageRe[a]!) - (b === REFERENCE ? 0 : this.voltageRe[b]!);
+      const di = (a === REFERENCE ? 0 : this.voltageIm[a]!) - (b === REFERENCE ? 0 : this.voltageIm[b]!);
+      this.pairRe[g] = dr;
+      this.pairIm[g] = di;
+      this.residual[g] = Math.sqrt(dr * dr + di * di) - this.magnitude[g]!;
+    }
+  }
+
+  /**
+   * At the last solve: φ' from the factors just made, the contraction check, and the
+   * factors of I − φ'. dv_g/dm_j = −Z(g, j)·(dY_j/dm)·v_j with Z the transfer impedance
+   * between pairs g and j, Z = Fᵀ·D⁻¹·F where F = L⁻¹·E (one forward substitution per
+   * pair: the nodal matrix is complex symmetric, see `forwardInOrder`). False when the
+   * fixed-point iteration would not contract there, or I − φ' is singular.
+   */
+  private prepareJacobian(): boolean {
+    const q = this.pairCount;
+    const p = this.pattern;
+    const size = p.size;
+    const fRe = this.columnRe;
+    const fIm = this.columnIm;
+    const posFrom = this.pairPositionFrom;
+    const posTo = this.pairPositionTo;
+    const work = this.workRe;
+    const workIm = this.workIm;
+    for (let j = 0; j < q; j++) {
+      const base = j * size;
+      for (let k = 0; k < size; k++) {
+        fRe[base + k] = 0;
+        fIm[base + k] = 0;
+      }
+      if (posFrom[j]! >= 0) fRe[base + posFrom[j]!] = 1;
+      if (posTo[j]! >= 0) fRe[base + posTo[j]!] = -1;
+      forwardInOrder(p, work, workIm, fRe, fIm, base);
+    }
+    // 1/pivot per position (in `rhs`, which the next solve overwrites anyway).
+    const invRe = this.rhsRe;
+    const invIm = this.rhsIm;
+    for (let k = 0; k < size; k++) {
+      const d = p.diagonal[k]!;
+      const dr = work[d]!;
+      const di = workIm[d]!;
+      const dd = dr * dr + di * di;
+      invRe[k] = dr / dd;
+      invIm[k] = -di / dd;
+    }
+    // Z(g, j) = Σ_k F_g[k]·F_j[k]/D_k, symmetric.
+    const zRe = this.transferRe;
+    const zIm = this.transferIm;
+    for (let g = 0; g < q; g++) {
+      const bg = g * size;
+      for (let j = g; j < q; j++) {
+        const bj = j * size;
+        let zr = 0;
+        let zi = 0;
+        for (let k = 0; k < size; k++) {
+          const ar = fRe[bg + k]!;
+          const ai = fIm[bg + k]!;
+          if (ar === 0 && ai === 0) continue;
+          const br = fRe[bj + k]!;
+          const bi = fIm[bj + k]!;
+          const pr = ar * br - ai * bi;
+          const pi = ar * bi + ai * br;
+          zr += pr * invRe[k]! - pi * invIm[k]!;
+          zi += pr * invIm[k]! + pi * invRe[k]!;
+        }
+        zRe[g * q + j] = zr;
+        zIm[g * q + j] = zi;
+        zRe[j * q + g] = zr;
+        zIm[j * q + g] = zi;
+      }
+      // c_g = (dY_g/dm)·v_g: dv_h/dm_g = −Z(h, g)·c_g.
+      const ur = this.pairRe[g]!;
+      const ui = this.pairIm[g]!;
+      this.driveRe[g] = this.slopeRe[g]! * ur - this.slopeIm[g]! * ui;
+      this.driveIm[g] = this.slopeRe[g]! * ui + this.slopeIm[g]! * ur;
+    }
+    // I − φ', φ'(g, j) = Re(conj(v_g)·dv_g/dm_j)/|v_g|; every row sum of |φ'| below the limit.
+    const jac = this.jacobian;
+    for (let g = 0; g < q; g++) {
+      const dr = this.pairRe[g]!;
+      const di = this.pairIm[g]!;
+      const m = Math.sqrt(dr * dr + di * di);
+      let rowSum = 0;
+      for (let j = 0; j < q; j++) {
+        const zr = zRe[g * q + j]!;
+        const zi = zIm[g * q + j]!;
+        const cr = this.driveRe[j]!;
+        const ci = this.driveIm[j]!;
+        const slope = -(dr * (zr * cr - zi * ci) + di * (zr * ci + zi * cr)) / m;
+        rowSum += Math.abs(slope);
+        jac[g * q + j] = (g === j ? 1 : 0) - slope;
+      }
+      if (!(rowSum < CONTRACTION_LIMIT)) return false;
+    }
+    return factorRealInPlace(jac, q, this.pivots);
   }
 
   /**
