@@ -19,20 +19,13 @@ import {
   AWG_MAX_CHARS,
   BREAKER_POLES,
   CONDUCTOR_MATERIALS,
-  CONNECTIONS,
   FREQUENCIES_HZ,
-  LOAD_MODELS,
   NOTATION_MAX_CHARS,
   PARALLEL_CONDUCTORS,
   PF_SENSES,
   PHASE_SEQUENCES,
-  PHYSICAL_RANGES,
   STAR_POINTS,
-  SYSTEMS,
-  type PhysicalRange,
 } from './boardRanges.js';
-
-export { CONNECTIONS, LOAD_MODELS, PHYSICAL_RANGES, SYSTEMS };
 
 const nonNegative = z.number().nonnegative();
 
@@ -46,6 +39,49 @@ function within(range: PhysicalRange): z.ZodNumber {
   const text = `a number ${above ? 'above' : 'from'} ${groupDigits(min)} ${above ? 'and at most' : 'to'} ${groupDigits(max)}${unit ? ` ${unit}` : ''}`;
   return (above ? z.number().gt(min, { message: text }) : z.number().min(min, { message: text })).max(max, { message: text });
 }
+
+interface PhysicalRange {
+  readonly min: number;
+  readonly max: number;
+  readonly unit: string;
+  /** The lower end is excluded. */
+  readonly above?: boolean;
+}
+
+/** Accepted ranges of the physical numbers in a board file (common practice, no source, unless named). */
+export const PHYSICAL_RANGES = {
+  /** Low voltage is up to 1000 V a.c. (IEC 60038, IEC 60364); 10 V leaves room for extra-low-voltage boards. */
+  voltage: { min: 10, max: 1000, unit: 'V' },
+  emfV: { min: 0, max: 1000, unit: 'V', above: true },
+  /** Distribution transformers feeding LV boards run from a few kVA to about 4,000 kVA. */
+  transformerKVA: { min: 0.1, max: 10_000, unit: 'kVA' },
+  impedancePercent: { min: 0, max: 30, unit: '%', above: true },
+  xOverR: { min: 0, max: 100, unit: '' },
+  /** Source, feeder and conductor impedances (a 1 mm² copper conductor is 18 ohm/km, IEC 60228). */
+  supplyOhms: { min: 0, max: 1000, unit: 'ohm' },
+  supplyReactanceOhms: { min: -1000, max: 1000, unit: 'ohm' },
+  ohmsPerKm: { min: 0, max: 10_000, unit: 'ohm/km' },
+  lengthM: { min: 0, max: 100_000, unit: 'm', above: true },
+  lengthFt: { min: 0, max: 330_000, unit: 'ft', above: true },
+  /** Cable library sizes (the tables hold the sizes; these only keep out nonsense). */
+  conductorMm2: { min: 0, max: 5000, unit: 'mm²', above: true },
+  conductorKcmil: { min: 0, max: 5000, unit: 'kcmil', above: true },
+  conductorTemperatureC: { min: -50, max: 250, unit: '°C' },
+  ratingA: { min: 0, max: 100_000, unit: 'A', above: true },
+  /** Loads: 100 MW is far beyond any one LV board. */
+  loadKW: { min: -100_000, max: 100_000, unit: 'kW' },
+  loadKvar: { min: -100_000, max: 100_000, unit: 'kvar' },
+  loadKVA: { min: 0, max: 100_000, unit: 'kVA', above: true },
+  loadA: { min: 0, max: 100_000, unit: 'A', above: true },
+  /** Below 0.01 a load is a reactance: give kW and kvar. */
+  pf: { min: 0.01, max: 1, unit: '' },
+  loadOhms: { min: 0, max: 1e7, unit: 'ohm' },
+  loadReactanceOhms: { min: -1e7, max: 1e7, unit: 'ohm' },
+} as const satisfies Record<string, PhysicalRange>;
+
+export const SYSTEMS = ['three-phase-4wire', 'three-phase-3wire', 'single-phase', 'split-phase'] as const;
+export const CONNECTIONS = ['A-N', 'B-N', 'C-N', 'A-B', 'B-C', 'C-A', 'ABC-star', 'ABC-delta'] as const;
+export const LOAD_MODELS = ['constant-impedance', 'constant-current', 'constant-power'] as const;
 
 const impedanceOf = (r: PhysicalRange, x: PhysicalRange) =>
   z

@@ -98,9 +98,15 @@ const feeder = strictObjectOf({
   lengthFt: optional(within(R.lengthFt)),
 });
 
+/**
+ * A circuit name as the schema takes it, but at most 100 characters with a visible one: a
+ * stricter name rule may come to the schema, and the shortcut may refuse more, never accept more.
+ */
+const circuitName: PlainShape = (v) => (typeof v === 'string' && v.length >= 1 && v.length <= 100 && /\S/.test(v) ? v : NOT_THIS_SHAPE);
+
 const fraction = numberIn(0, 1);
 const load = strictObjectOf({
-  name: required(textOf(1)),
+  name: required(circuitName),
   circuit: optional(textOf(1)),
   breakerA: optional(within(R.ratingA)),
   poles: optional(oneOf(BREAKER_POLES)),
