@@ -86,7 +86,7 @@ describe('trivar report', () => {
     expect(b.stderr).toContain('capacitors[0].branch');
     const i = runTrivar(['report', 'examples/maple-court-riser.yaml', '--hand-figures', args[1]!, '-o', join(dir, 'i.html')]);
     expect(i.code).toBe(2);
-    expect(i.stderr).toContain('a board file of its own');
+    expect(i.stderr).toContain('single board file');
     // The figures file is an input: never overwritten.
     expect(runTrivar(['report', args[0]!, '--hand-figures', bad, '-o', bad]).code).toBe(2);
   });

@@ -41,6 +41,8 @@ const wordValues = [
   ...['', 'x', 'A-N', 'B-C', 'N-A', 'L1-N', 'ABC-star', 'ABC-delta', '400/230', '208Y/120', '120/240', '230', 'nonsense/notation', 'x'.repeat(41), '4/0', 'x'.repeat(13)],
   ...['copper', 'aluminum', 'gold', 'leading', 'lagging', 'floating', 'neutral', 'constant-current', 'constant-torque', 'three-phase-3wire', 'single-phase'],
   ...['ABC', 'ACB', 'CBA', 'switch-mode', 'en50160-supply', 'north-america', 'iec', 'A/B/C', 'L1/L2/L3'],
+  // Text a tighter rule on names or notes would refuse: the shortcut must then refuse it too.
+  ...[' ', '   ', ' a ', 'x'.repeat(101), 'x'.repeat(1001), 'a\u0000b', 'a\nb', '\u202e', 'é'.repeat(60)],
 ];
 const words = fc.constantFrom(...wordValues);
 const otherValues: unknown[] = [true, false, null, [], {}, { r: 0.1, x: 0.05 }, { kVA: 100, impedancePercent: 4, xOverR: 3 }, { A: { r: 0.1, x: 0.1 } }, { lineToNeutral: 230 }, 5, 'A-N'];
