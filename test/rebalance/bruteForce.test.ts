@@ -57,8 +57,10 @@ const studyArb = (spec: BoardSpec): fc.Arbitrary<Study> => {
 function scoreOf(study: Study, figures: readonly (Figures & { positive: number })[]): number {
   const per = figures.map((f) => {
     const w = study.aim;
-    // With every circuit off (a condition may switch them all off) there is no unbalance to weigh.
-    const unbalance = w.currentUnbalance && f.positive > 0 ? (w.currentUnbalance * 100 * f.negative) / f.positive : 0;
+    // With every circuit off (a condition may switch them all off) there is no unbalance to weigh; as in
+    // the fast model, a positive-sequence current below 1e-12 A counts as 1e-12 A, so a condition scaled
+    // to nothing (a factor of 1e-163) weighs no unbalance instead of the ratio of two round-off currents.
+    const unbalance = w.currentUnbalance ? (w.currentUnbalance * 100 * f.negative) / Math.max(f.positive, 1e-12) : 0;
     return (w.largestLine ?? 0) * Math.max(...f.lines) + (w.neutral ?? 0) * f.neutral + unbalance;
   });
   if (study.combine === 'worst') return Math.max(...per);
