@@ -19,7 +19,7 @@ import { NumericalError } from '../errors.js';
 import type { ComplexValue } from '../complex.js';
 import { leastDeterminedUnknown, solveComplexSystem } from '../_internal/complexLu.js';
 import { analysePattern, factorInPlace, forwardInOrder, substituteInOrder, type SparsePattern } from '../_internal/sparseComplexLu.js';
-import { factorRealInPlace, solveRealFactored } from '../_internal/denseRealLu.js';
+import { factorRealInPlace, invertReal3InPlace, multiplyReal3, solveRealFactored } from '../_internal/denseRealLu.js';
 import { LoadPortReduction } from './loadPortReduction.js';
 import { REFERENCE, type Circuit } from './circuit.js';
 import { resolveSolveOptions, type ResolvedSolveOptions, type SolveOptions } from './solveOptions.js';
@@ -708,7 +708,8 @@ export class CompiledNetwork {
         if (!this.prepareJacobian(this.transferRe, this.transferIm, q)) return false;
       }
       if (!reduction) this.keepVoltages();
-      solveRealFactored(this.jacobian, q, this.pivots, res);
+      if (q === 3) multiplyReal3(this.jacobian, res);
+      else solveRealFactored(this.jacobian, q, this.pivots, res);
       for (let g = 0; g < q; g++) {
         const next = mag[g]! + res[g]!;
         if (!(next > 0)) return false;
@@ -882,8 +883,9 @@ export class CompiledNetwork {
   }
 
   /**
-   * At the last solve, with `transfer` holding Z between the pairs there: φ', the
-   * contraction check, and the factors of I − φ'. dv_g/dm_j = −Z(g, j)·(dY_j/dm)·v_j.
+   * At the last solve, with `z` holding Z between the pairs there (row stride
+   * `stride`): φ', the contraction check, and the factors of I − φ' (its inverse, for
+   * three pairs). dv_g/dm_j = −Z(g, j)·(dY_j/dm)·v_j.
    * False when the fixed-point iteration would not contract there, or I − φ' is singular.
    */
   private prepareJacobian(zRe: Float64Array, zIm: Float64Array, stride: number): boolean {
@@ -913,7 +915,8 @@ export class CompiledNetwork {
       }
       if (!(rowSum < CONTRACTION_LIMIT)) return false;
     }
-    return factorRealInPlace(jac, q, this.pivots);
+    // Three pairs (the commonest board): the inverse itself, applied by `multiplyReal3`.
+    return q === 3 ? invertReal3InPlace(jac) : factorRealInPlace(jac, q, this.pivots);
   }
 
   /**

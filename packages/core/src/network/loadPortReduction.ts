@@ -428,16 +428,25 @@ export class LoadPortReduction {
     dd = d2r * d2r + d2i * d2i;
     const e2r = d2r / dd;
     const e2i = -d2i / dd;
-    const small = (dr: number, di: number, ar: number, ai: number) => {
+    // The pivot rule of factorSymmetricInPlace: each pivot at least PIVOT_FLOOR of the largest entry.
+    const largest = Math.max(
+      Math.abs(a00r) + Math.abs(a00i),
+      Math.abs(a10r) + Math.abs(a10i),
+      Math.abs(a11r) + Math.abs(a11i),
+      Math.abs(a20r) + Math.abs(a20i),
+      Math.abs(a21r) + Math.abs(a21i),
+      Math.abs(a22r) + Math.abs(a22i),
+    );
+    const small = (dr: number, di: number) => {
       const pivot = Math.abs(dr) + Math.abs(di);
-      return !(pivot >= PIVOT_FLOOR * (Math.abs(ar) + Math.abs(ai))) || !(pivot > 0) || !(pivot < Infinity);
+      return !(pivot >= PIVOT_FLOOR * largest) || !(pivot > 0) || !(pivot < Infinity);
     };
     const vRe = this.voltageRe;
     const vIm = this.voltageIm;
     const injected = this.injected;
     const dRe = injected ? this.injectedDriveRe : this.sourceDriveRe;
     const dIm = injected ? this.injectedDriveIm : this.sourceDriveIm;
-    if (small(a00r, a00i, a00r, a00i) || small(d1r, d1i, a11r, a11i) || small(d2r, d2i, a22r, a22i)) {
+    if (small(a00r, a00i) || small(d1r, d1i) || small(d2r, d2i)) {
       for (let a = 0; a < 3; a++) {
         vRe[a] = dRe[a]!;
         vIm[a] = dIm[a]!;
