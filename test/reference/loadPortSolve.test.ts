@@ -35,6 +35,35 @@ const closeTo = (x: C, y: C, scale: number, what: string) => {
   expect(error, `${what}: ${JSON.stringify(x)} against ${JSON.stringify(y)}`).toBeLessThanOrEqual(1e-9 * scale);
 };
 
+/** The fixed part `fixed` (pattern from `pairs`) with right-hand side `rhs`, reduced to ports from node i to node j (-1: the reference). */
+function reduce(fixed: C[][], pairs: [number, number][], rhs: C[], ports: [number, number][]) {
+  const pattern = analysePattern(fixed.length, pairs);
+  const baseRe = new Float64Array(pattern.slotCount);
+  const baseIm = new Float64Array(pattern.slotCount);
+  fixed.forEach((row, i) =>
+    row.forEach((v, j) => {
+      const s = pattern.slotOf(i, j);
+      if (s >= 0) {
+        baseRe[s] = v.re;
+        baseIm[s] = v.im;
+      }
+    }),
+  );
+  const position = (v: number) => (v < 0 ? -1 : pattern.position[v]!);
+  const reduction = LoadPortReduction.build(
+    pattern,
+    baseRe,
+    baseIm,
+    Float64Array.from(rhs, (b) => b.re),
+    Float64Array.from(rhs, (b) => b.im),
+    Int32Array.from(ports, ([i]) => position(i)),
+    Int32Array.from(ports, ([, j]) => position(j)),
+    new Float64Array(ports.length),
+    new Float64Array(ports.length),
+  );
+  return { pattern, reduction };
+}
+
 /** A fixed nodal part (diagonally dominant, structurally symmetric), its sources, ports between node pairs, and admittances on them. */
 const networkArb = fc.integer({ min: 2, max: 12 }).chain((n) =>
   fc.record({
@@ -64,30 +93,7 @@ describe('solve through the load ports', () => {
         }
         const pairs: [number, number][] = edges.filter(([i, j]) => i !== j).map(([i, j]) => [i, j]);
         for (const [i, j] of distinct) if (j >= 0) pairs.push([i, j]);
-        const pattern = analysePattern(n, pairs);
-        const baseRe = new Float64Array(pattern.slotCount);
-        const baseIm = new Float64Array(pattern.slotCount);
-        fixed.forEach((row, i) =>
-          row.forEach((v, j) => {
-            const s = pattern.slotOf(i, j);
-            if (s >= 0) {
-              baseRe[s] = v.re;
-              baseIm[s] = v.im;
-            }
-          }),
-        );
-        const position = (v: number) => (v < 0 ? -1 : pattern.position[v]!);
-        const reduction = LoadPortReduction.build(
-          pattern,
-          baseRe,
-          baseIm,
-          Float64Array.from(rhs, (b) => b.re),
-          Float64Array.from(rhs, (b) => b.im),
-          Int32Array.from(distinct, ([i]) => position(i)),
-          Int32Array.from(distinct, ([, j]) => position(j)),
-          new Float64Array(distinct.length),
-          new Float64Array(distinct.length),
-        );
+        const { pattern, reduction } = reduce(fixed, pairs, rhs, distinct);
         // Ports that form a loop have no W: the network then takes the sparse solve, nothing to compare.
         if (!reduction) return;
         reduced++;
@@ -216,26 +222,11 @@ describe('solve through the load ports where L·D·Lᵀ refuses', () => {
       [{ re: -4, im: 1 }, { re: 14, im: -2 }],
     ];
     const rhs: C[] = [{ re: 100, im: 0 }, { re: -50, im: 80 }];
-    const pattern = analysePattern(2, [[0, 1]]);
-    const baseRe = new Float64Array(pattern.slotCount);
-    const baseIm = new Float64Array(pattern.slotCount);
-    fixed.forEach((row, i) =>
-      row.forEach((v, j) => {
-        baseRe[pattern.slotOf(i, j)] = v.re;
-        baseIm[pattern.slotOf(i, j)] = v.im;
-      }),
-    );
-    const reduction = LoadPortReduction.build(
-      pattern,
-      baseRe,
-      baseIm,
-      Float64Array.from(rhs, (b) => b.re),
-      Float64Array.from(rhs, (b) => b.im),
-      Int32Array.from([0, 1], (v) => pattern.position[v]!),
-      Int32Array.from([-1, -1]),
-      new Float64Array(2),
-      new Float64Array(2),
-    )!;
+    const { pattern, reduction: built } = reduce(fixed, [[0, 1]], rhs, [
+      [0, -1],
+      [1, -1],
+    ]);
+    const reduction = built!;
     expect(reduction).not.toBeNull();
     // Ports to the reference: W is the fixed nodal matrix itself, so −W(0,0) on port 0 leaves a zero leading pivot.
     const y: C[] = [{ re: -14, im: 2 }, { re: 3, im: -1 }];

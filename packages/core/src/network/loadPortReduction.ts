@@ -33,6 +33,21 @@ import { factorSymmetricInPlace, invertSymmetricFactored, PIVOT_FLOOR, solveSymm
  */
 const WELL_DETERMINED = 1e-4;
 
+/** What a reduction is built from (see the fields of LoadPortReduction of the same names). */
+interface PortTables {
+  readonly pattern: SparsePattern;
+  readonly fixedRe: Float64Array;
+  readonly fixedIm: Float64Array;
+  readonly from: Int32Array;
+  readonly to: Int32Array;
+  readonly fixedVoltageRe: Float64Array;
+  readonly fixedVoltageIm: Float64Array;
+  readonly wRe: Float64Array;
+  readonly wIm: Float64Array;
+  readonly towardRe: Float64Array;
+  readonly towardIm: Float64Array;
+}
+
 export class LoadPortReduction {
   readonly portCount: number;
   private readonly pattern: SparsePattern;
@@ -84,19 +99,8 @@ export class LoadPortReduction {
   readonly admittanceRe: Float64Array;
   readonly admittanceIm: Float64Array;
 
-  private constructor(
-    pattern: SparsePattern,
-    fixedRe: Float64Array,
-    fixedIm: Float64Array,
-    from: Int32Array,
-    to: Int32Array,
-    fixedVoltageRe: Float64Array,
-    fixedVoltageIm: Float64Array,
-    wRe: Float64Array,
-    wIm: Float64Array,
-    towardRe: Float64Array,
-    towardIm: Float64Array,
-  ) {
+  private constructor(tables: PortTables) {
+    const { pattern, fixedRe, fixedIm, from, to, fixedVoltageRe, fixedVoltageIm, wRe, wIm, towardRe, towardIm } = tables;
     const n = pattern.size;
     const q = from.length;
     this.portCount = q;
@@ -179,7 +183,8 @@ export class LoadPortReduction {
         wIm[a * q + p] = across(towardIm, p * n, a);
       }
     if (!invertComplexInPlace(wRe, wIm, q, new Int32Array(q), WELL_DETERMINED)) return null;
-    const reduction = q < 3 ? LoadPortReduction.padded(pattern, fixedRe, fixedIm, from, to, fixedVoltageRe, fixedVoltageIm, wRe, wIm, towardRe, towardIm) : new LoadPortReduction(pattern, fixedRe, fixedIm, from, to, fixedVoltageRe, fixedVoltageIm, wRe, wIm, towardRe, towardIm);
+    const tables: PortTables = { pattern, fixedRe, fixedIm, from, to, fixedVoltageRe, fixedVoltageIm, wRe, wIm, towardRe, towardIm };
+    const reduction = new LoadPortReduction(q < 3 ? LoadPortReduction.padded(tables) : tables);
     reduction.openCircuitInto(rhsRe, rhsIm, reduction.sourceOpenRe, reduction.sourceOpenIm, reduction.sourceDriveRe, reduction.sourceDriveIm);
     for (const table of [wRe, wIm, towardRe, towardIm, reduction.sourceOpenRe, reduction.sourceOpenIm, reduction.sourceDriveRe, reduction.sourceDriveIm])
       for (const x of table) if (!Number.isFinite(x)) return null;
@@ -190,19 +195,8 @@ export class LoadPortReduction {
    * One or two ports made three with ports that carry nothing (W's identity, no
    * transfer, open at both ends), so that they take the three-port solve.
    */
-  private static padded(
-    pattern: SparsePattern,
-    fixedRe: Float64Array,
-    fixedIm: Float64Array,
-    from: Int32Array,
-    to: Int32Array,
-    fixedVoltageRe: Float64Array,
-    fixedVoltageIm: Float64Array,
-    wRe: Float64Array,
-    wIm: Float64Array,
-    towardRe: Float64Array,
-    towardIm: Float64Array,
-  ): LoadPortReduction {
+  private static padded(tables: PortTables): PortTables {
+    const { pattern, from, to, fixedVoltageRe, fixedVoltageIm, wRe, wIm, towardRe, towardIm } = tables;
     const q = from.length;
     const n = pattern.size;
     const grow = (x: Float64Array) => {
@@ -219,7 +213,7 @@ export class LoadPortReduction {
       }
     const ends = (x: Int32Array) => Int32Array.from({ length: 3 }, (_, a) => (a < q ? x[a]! : -1));
     const volts = (x: Float64Array) => Float64Array.from({ length: 3 }, (_, a) => (a < q ? x[a]! : 0));
-    return new LoadPortReduction(pattern, fixedRe, fixedIm, ends(from), ends(to), volts(fixedVoltageRe), volts(fixedVoltageIm), paddedRe, paddedIm, grow(towardRe), grow(towardIm));
+    return { ...tables, from: ends(from), to: ends(to), fixedVoltageRe: volts(fixedVoltageRe), fixedVoltageIm: volts(fixedVoltageIm), wRe: paddedRe, wIm: paddedIm, towardRe: grow(towardRe), towardIm: grow(towardIm) };
   }
 
   /**
