@@ -125,7 +125,7 @@ for (const model of ['constant-power', 'constant-impedance'] as const) {
   );
   compiled.network.solve();
   const { iterations, method } = compiled.network;
-  const route = method === 'newton' ? (compiled.network.solvesThroughPorts ? ', through the load ports' : ', sparse') : '';
+  const route = method === 'newton' ? (compiled.network.solvedThroughPorts ? ', through the load ports' : ', sparse') : '';
   compiledRates[model] = compiledRate;
   compiled.network.solveByFixedPoint();
   console.log(`   ${model}:`);

@@ -56,10 +56,10 @@ function reduce(fixed: C[][], pairs: [number, number][], rhs: C[], ports: [numbe
     baseIm,
     Float64Array.from(rhs, (b) => b.re),
     Float64Array.from(rhs, (b) => b.im),
-    Int32Array.from(ports, ([i]) => position(i)),
-    Int32Array.from(ports, ([, j]) => position(j)),
-    new Float64Array(ports.length),
-    new Float64Array(ports.length),
+    ports.map(([i]) => position(i)),
+    ports.map(([, j]) => position(j)),
+    ports.map(() => 0),
+    ports.map(() => 0),
   );
   return { pattern, reduction };
 }

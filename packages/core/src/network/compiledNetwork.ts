@@ -138,10 +138,17 @@ export class CompiledNetwork {
   private readonly columnRe: Float64Array;
   private readonly columnIm: Float64Array;
   private factored = false;
-  /** The network reduced to its load ports, where the Newton path solves through them (null: it assembles and factorises). */
-  private readonly reduction: LoadPortReduction | null;
+  /**
+   * The network reduced to its load ports, where the Newton path solves through them
+   * (null: it assembles and factorises). Built at compile time, so that every solve of
+   * a network, the first included, takes the same arithmetic: a network compiled once
+   * and re-solved gives to the last bit what a fresh compile and solve gives.
+   */
+  private readonly reduction: LoadPortReduction | null = null;
+  /** Whether the last solve's Newton path went through `reduction`. */
+  private throughPorts = false;
   /** Port of each branch in `reduction` (-1: inactive, or no end is an unknown); ports 0…pairCount−1 are the pairs. */
-  private readonly portOf: Int32Array;
+  private portOf: number[] = [];
   /** Set by admittancesAtMagnitudes: a voltage-dependent branch is held below the low-voltage threshold. */
   private held = false;
 
@@ -337,53 +344,66 @@ export class CompiledNetwork {
     this.columnRe = new Float64Array(newton * size);
     this.columnIm = new Float64Array(newton * size);
 
-    // Load ports: the pairs first (same order and orientation), then the node pairs of the other active branches.
-    this.portOf = new Int32Array(m).fill(-1);
-    const portFrom = [...pairFrom];
-    const portTo = [...pairTo];
-    const portKey = new Map(pairKey);
+    if (newton > 0 && size <= MAX_REDUCED_UNKNOWNS) this.reduction = this.portReduction(pairKey, pairFrom, pairTo, positionOf);
+  }
+
+  /**
+   * The load ports (the pairs first, in the same order and orientation, then the node
+   * pairs of the other active branches) and the reduction to them; null where there
+   * are too many ports or the reduction declines (see loadPortReduction.ts).
+   */
+  private portReduction(pairKey: Map<number, number>, pairFrom: readonly number[], pairTo: readonly number[], positionOf: (v: number) => number): LoadPortReduction | null {
+    const n = this.nodeCount;
+    const m = this.branchCount;
+    // Plain arrays: a typed array costs more to make than the few entries are worth here.
+    const portOf: number[] = [];
+    const portFrom = pairFrom.slice();
+    const portTo = pairTo.slice();
     for (let k = 0; k < m; k++) {
+      portOf.push(-1);
       if (!this.bActive[k]) continue;
       if (this.pairOf[k]! >= 0) {
-        this.portOf[k] = this.pairOf[k]!;
+        portOf[k] = this.pairOf[k]!;
         continue;
       }
       const a = this.bFrom[k]!;
       const b = this.bTo[k]!;
       if (positionOf(a) < 0 && positionOf(b) < 0) continue;
+      // The pairs' keys, extended by the ports beyond them.
       const key = (Math.min(a, b) + 1) * (n + 1) + Math.max(a, b) + 1;
-      let port = portKey.get(key);
+      let port = pairKey.get(key);
       if (port === undefined) {
         port = portFrom.push(a) - 1;
         portTo.push(b);
-        portKey.set(key, port);
+        pairKey.set(key, port);
       }
-      this.portOf[k] = port;
+      portOf[k] = port;
     }
-    this.reduction = null;
-    if (newton > 0 && size <= MAX_REDUCED_UNKNOWNS && portFrom.length <= MAX_PORTS) {
-      const fixedRe = (v: number) => (v !== REFERENCE && this.kind[v] === NODE_FIXED ? this.voltageRe[v]! : 0);
-      const fixedIm = (v: number) => (v !== REFERENCE && this.kind[v] === NODE_FIXED ? this.voltageIm[v]! : 0);
-      this.reduction = LoadPortReduction.build(
-        p,
-        this.baseRe,
-        this.baseIm,
-        this.baseRhsRe,
-        this.baseRhsIm,
-        Int32Array.from(portFrom, positionOf),
-        Int32Array.from(portTo, positionOf),
-        Float64Array.from(portFrom, (a, i) => fixedRe(a) - fixedRe(portTo[i]!)),
-        Float64Array.from(portFrom, (a, i) => fixedIm(a) - fixedIm(portTo[i]!)),
-      );
-    }
+    this.portOf = portOf;
+    if (portFrom.length > MAX_PORTS) return null;
+    const fixedRe = (v: number) => (v !== REFERENCE && this.kind[v] === NODE_FIXED ? this.voltageRe[v]! : 0);
+    const fixedIm = (v: number) => (v !== REFERENCE && this.kind[v] === NODE_FIXED ? this.voltageIm[v]! : 0);
+    return LoadPortReduction.build(
+      this.pattern,
+      this.baseRe,
+      this.baseIm,
+      this.baseRhsRe,
+      this.baseRhsIm,
+      portFrom.map(positionOf),
+      portTo.map(positionOf),
+      portFrom.map((a, i) => fixedRe(a) - fixedRe(portTo[i]!)),
+      portFrom.map((a, i) => fixedIm(a) - fixedIm(portTo[i]!)),
+    );
   }
 
+
   /**
-   * True when the Newton path solves through the load ports (loadPortReduction.ts)
-   * rather than assembling and factorising the nodal matrix each time.
+   * True when the last solve's Newton path went through the load ports
+   * (loadPortReduction.ts) rather than assembling and factorising the nodal matrix
+   * each time: a small network whose fixed part reduces.
    */
-  get solvesThroughPorts(): boolean {
-    return this.reduction !== null;
+  get solvedThroughPorts(): boolean {
+    return this.throughPorts;
   }
 
   /** Number of unknowns the linear solves work on. */
@@ -564,7 +584,10 @@ export class CompiledNetwork {
    */
   solve(solveOptions?: SolveOptions): void {
     const options = solveOptions === undefined ? DEFAULT_OPTIONS : resolveSolveOptions(solveOptions);
-    if (this.allImpedance || !(this.pairCount <= MAX_PAIRS && this.solveByMagnitudes(options))) this.iterate(options);
+    if (this.allImpedance || !(this.pairCount <= MAX_PAIRS && this.solveByMagnitudes(options))) {
+      this.throughPorts = false;
+      this.iterate(options);
+    }
     this.assertFinite();
   }
 
@@ -574,6 +597,7 @@ export class CompiledNetwork {
    * @throws {NumericalError} for a singular network or an iteration that does not settle.
    */
   solveByFixedPoint(solveOptions?: SolveOptions): void {
+    this.throughPorts = false;
     this.iterate(solveOptions === undefined ? DEFAULT_OPTIONS : resolveSolveOptions(solveOptions));
     this.assertFinite();
   }
@@ -668,6 +692,7 @@ export class CompiledNetwork {
     const res = this.residual;
     for (let g = 0; g < q; g++) mag[g] = this.pairNominal[g]!;
     const reduction = this.reduction;
+    this.throughPorts = reduction !== null;
     if (reduction) this.openCircuit(reduction);
     let previousChange = 0;
     const most = Math.min(options.maxIterations, MAX_NEWTON_SOLVES);

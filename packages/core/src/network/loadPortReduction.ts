@@ -33,20 +33,21 @@ import { factorSymmetricInPlace, invertSymmetricFactored, PIVOT_FLOOR, solveSymm
  */
 const WELL_DETERMINED = 1e-4;
 
-/** What a reduction is built from (see the fields of LoadPortReduction of the same names). */
-interface PortTables {
-  readonly pattern: SparsePattern;
-  readonly fixedRe: Float64Array;
-  readonly fixedIm: Float64Array;
-  readonly from: Int32Array;
-  readonly to: Int32Array;
-  readonly fixedVoltageRe: Float64Array;
-  readonly fixedVoltageIm: Float64Array;
-  readonly wRe: Float64Array;
-  readonly wIm: Float64Array;
-  readonly towardRe: Float64Array;
-  readonly towardIm: Float64Array;
+/**
+ * Typed arrays carved out of one allocation: on Node 20 a fresh typed array costs
+ * about as much as a whole small solve, and a reduction holds some thirty of them.
+ */
+class Slab<T extends Float64Array | Int32Array> {
+  private offset = 0;
+  constructor(private readonly buffer: T) {}
+  take(length: number): T {
+    const view = this.buffer.subarray(this.offset, this.offset + length) as T;
+    this.offset += length;
+    return view;
+  }
 }
+
+const EMPTY = new Float64Array(0);
 
 export class LoadPortReduction {
   readonly portCount: number;
@@ -70,11 +71,11 @@ export class LoadPortReduction {
   private readonly sourceOpenIm: Float64Array;
   private readonly sourceDriveRe: Float64Array;
   private readonly sourceDriveIm: Float64Array;
-  /** The same with injections, when a caller sets them. */
-  private readonly injectedOpenRe: Float64Array;
-  private readonly injectedOpenIm: Float64Array;
-  private readonly injectedDriveRe: Float64Array;
-  private readonly injectedDriveIm: Float64Array;
+  /** The same with injections, when a caller sets them (made at the first such solve). */
+  private injectedOpenRe = EMPTY;
+  private injectedOpenIm = EMPTY;
+  private injectedDriveRe = EMPTY;
+  private injectedDriveIm = EMPTY;
   private injected = false;
   /** W + diag(Y) of the last `solvePorts`, as L·D·Lᵀ factors (or spoiled, when `inverted` holds the inverse instead). */
   private readonly factorRe: Float64Array;
@@ -99,43 +100,42 @@ export class LoadPortReduction {
   readonly admittanceRe: Float64Array;
   readonly admittanceIm: Float64Array;
 
-  private constructor(tables: PortTables) {
-    const { pattern, fixedRe, fixedIm, from, to, fixedVoltageRe, fixedVoltageIm, wRe, wIm, towardRe, towardIm } = tables;
+  private constructor(pattern: SparsePattern, ports: number, floats: Slab<Float64Array>, ints: Slab<Int32Array>) {
     const n = pattern.size;
-    const q = from.length;
-    this.portCount = q;
+    this.portCount = ports;
     this.pattern = pattern;
-    this.fixedRe = fixedRe;
-    this.fixedIm = fixedIm;
-    this.portPositionFrom = from;
-    this.portPositionTo = to;
-    this.portFixedRe = fixedVoltageRe;
-    this.portFixedIm = fixedVoltageIm;
-    this.wRe = wRe;
-    this.wIm = wIm;
-    this.towardRe = towardRe;
-    this.towardIm = towardIm;
-    this.sourceOpenRe = new Float64Array(n);
-    this.sourceOpenIm = new Float64Array(n);
-    this.sourceDriveRe = new Float64Array(q);
-    this.sourceDriveIm = new Float64Array(q);
-    this.injectedOpenRe = new Float64Array(n);
-    this.injectedOpenIm = new Float64Array(n);
-    this.injectedDriveRe = new Float64Array(q);
-    this.injectedDriveIm = new Float64Array(q);
-    this.factorRe = new Float64Array(q * q);
-    this.factorIm = new Float64Array(q * q);
-    this.inverseRe = new Float64Array(q * q);
-    this.inverseIm = new Float64Array(q * q);
-    this.pivots = new Int32Array(q);
-    this.columnRe = new Float64Array(q);
-    this.columnIm = new Float64Array(q);
-    this.voltageRe = new Float64Array(q);
-    this.voltageIm = new Float64Array(q);
-    this.currentRe = new Float64Array(q);
-    this.currentIm = new Float64Array(q);
-    this.admittanceRe = new Float64Array(q);
-    this.admittanceIm = new Float64Array(q);
+    this.fixedRe = floats.take(pattern.slotCount);
+    this.fixedIm = floats.take(pattern.slotCount);
+    this.portPositionFrom = ints.take(ports);
+    this.portPositionTo = ints.take(ports);
+    this.pivots = ints.take(ports);
+    this.portFixedRe = floats.take(ports);
+    this.portFixedIm = floats.take(ports);
+    this.towardRe = floats.take(ports * n);
+    this.towardIm = floats.take(ports * n);
+    this.wRe = floats.take(ports * ports);
+    this.wIm = floats.take(ports * ports);
+    this.sourceOpenRe = floats.take(n);
+    this.sourceOpenIm = floats.take(n);
+    this.sourceDriveRe = floats.take(ports);
+    this.sourceDriveIm = floats.take(ports);
+    this.factorRe = floats.take(ports * ports);
+    this.factorIm = floats.take(ports * ports);
+    this.inverseRe = floats.take(ports * ports);
+    this.inverseIm = floats.take(ports * ports);
+    this.columnRe = floats.take(ports);
+    this.columnIm = floats.take(ports);
+    this.voltageRe = floats.take(ports);
+    this.voltageIm = floats.take(ports);
+    this.currentRe = floats.take(ports);
+    this.currentIm = floats.take(ports);
+    this.admittanceRe = floats.take(ports);
+    this.admittanceIm = floats.take(ports);
+  }
+
+  /** Floats the constructor carves, for `ports` ports on `pattern`. */
+  private static floatsFor(pattern: SparsePattern, ports: number): number {
+    return 2 * pattern.slotCount + 2 * ports * pattern.size + 6 * ports * ports + 2 * pattern.size + 12 * ports;
   }
 
   /**
@@ -143,7 +143,9 @@ export class LoadPortReduction {
    * and right-hand side `rhsRe/rhsIm` (by unknown: its sources) to the ports between
    * elimination positions `from[p]` and `to[p]` (-1: the reference or a fixed node,
    * whose voltages from − to are `fixedVoltageRe/Im[p]`). Null where the fixed part is
-   * not well determined or the ports are not independent (see WELL_DETERMINED).
+   * not well determined or the ports are not independent (see WELL_DETERMINED). One or
+   * two ports are made three with ports that carry nothing (W's identity, no transfer,
+   * open at both ends), so that they take the three-port solve.
    */
   static build(
     pattern: SparsePattern,
@@ -151,69 +153,64 @@ export class LoadPortReduction {
     baseIm: Float64Array,
     rhsRe: Float64Array,
     rhsIm: Float64Array,
-    from: Int32Array,
-    to: Int32Array,
-    fixedVoltageRe: Float64Array,
-    fixedVoltageIm: Float64Array,
+    from: readonly number[],
+    to: readonly number[],
+    fixedVoltageRe: readonly number[],
+    fixedVoltageIm: readonly number[],
   ): LoadPortReduction | null {
     const n = pattern.size;
     const q = from.length;
-    const fixedRe = Float64Array.from(baseRe);
-    const fixedIm = Float64Array.from(baseIm);
+    const ports = Math.max(q, 3);
+    const floats = new Slab(new Float64Array(LoadPortReduction.floatsFor(pattern, ports) + 2 * q * q));
+    const ints = new Slab(new Int32Array(3 * ports + q));
+    const r = new LoadPortReduction(pattern, ports, floats, ints);
+    const { fixedRe, fixedIm, towardRe, towardIm } = r;
     let scale = 0;
+    for (let s = 0; s < pattern.slotCount; s++) {
+      fixedRe[s] = baseRe[s]!;
+      fixedIm[s] = baseIm[s]!;
+    }
     for (let k = 0; k < n; k++) {
       const d = pattern.diagonal[k]!;
-      scale = Math.max(scale, Math.hypot(fixedRe[d]!, fixedIm[d]!));
+      scale = Math.max(scale, Math.sqrt(fixedRe[d]! * fixedRe[d]! + fixedIm[d]! * fixedIm[d]!));
     }
     if (!(scale > 0 && scale < Infinity) || factorInPlace(pattern, fixedRe, fixedIm, WELL_DETERMINED, scale) >= 0) return null;
-    const towardRe = new Float64Array(q * n);
-    const towardIm = new Float64Array(q * n);
+    for (let p = 0; p < ports; p++) {
+      r.portPositionFrom[p] = p < q ? from[p]! : -1;
+      r.portPositionTo[p] = p < q ? to[p]! : -1;
+      r.portFixedRe[p] = p < q ? fixedVoltageRe[p]! : 0;
+      r.portFixedIm[p] = p < q ? fixedVoltageIm[p]! : 0;
+    }
     for (let p = 0; p < q; p++) {
       if (from[p]! >= 0) towardRe[p * n + from[p]!] = 1;
       if (to[p]! >= 0) towardRe[p * n + to[p]!] = -1;
       substituteInOrder(pattern, fixedRe, fixedIm, towardRe, towardIm, p * n);
     }
-    const across = (x: Float64Array, offset: number, a: number) =>
-      (from[a]! >= 0 ? x[offset + from[a]!]! : 0) - (to[a]! >= 0 ? x[offset + to[a]!]! : 0);
-    const wRe = new Float64Array(q * q);
-    const wIm = new Float64Array(q * q);
+    // Z (q × q), inverted in place to W, then set into the ports' table (identity for padding).
+    const zRe = floats.take(q * q);
+    const zIm = floats.take(q * q);
     for (let a = 0; a < q; a++)
       for (let p = 0; p < q; p++) {
-        wRe[a * q + p] = across(towardRe, p * n, a);
-        wIm[a * q + p] = across(towardIm, p * n, a);
+        zRe[a * q + p] = r.across(towardRe, p * n, a);
+        zIm[a * q + p] = r.across(towardIm, p * n, a);
       }
-    if (!invertComplexInPlace(wRe, wIm, q, new Int32Array(q), WELL_DETERMINED)) return null;
-    const tables: PortTables = { pattern, fixedRe, fixedIm, from, to, fixedVoltageRe, fixedVoltageIm, wRe, wIm, towardRe, towardIm };
-    const reduction = new LoadPortReduction(q < 3 ? LoadPortReduction.padded(tables) : tables);
-    reduction.openCircuitInto(rhsRe, rhsIm, reduction.sourceOpenRe, reduction.sourceOpenIm, reduction.sourceDriveRe, reduction.sourceDriveIm);
-    for (const table of [wRe, wIm, towardRe, towardIm, reduction.sourceOpenRe, reduction.sourceOpenIm, reduction.sourceDriveRe, reduction.sourceDriveIm])
-      for (const x of table) if (!Number.isFinite(x)) return null;
-    return reduction;
+    if (!invertComplexInPlace(zRe, zIm, q, ints.take(q), WELL_DETERMINED)) return null;
+    for (let a = 0; a < ports; a++)
+      for (let p = 0; p < ports; p++) {
+        r.wRe[a * ports + p] = a < q && p < q ? zRe[a * q + p]! : a === p ? 1 : 0;
+        r.wIm[a * ports + p] = a < q && p < q ? zIm[a * q + p]! : 0;
+      }
+    r.openCircuitInto(rhsRe, rhsIm, r.sourceOpenRe, r.sourceOpenIm, r.sourceDriveRe, r.sourceDriveIm);
+    for (const table of [r.wRe, r.wIm, towardRe, towardIm, r.sourceOpenRe, r.sourceOpenIm, r.sourceDriveRe, r.sourceDriveIm])
+      for (let k = 0; k < table.length; k++) if (!Number.isFinite(table[k]!)) return null;
+    return r;
   }
 
-  /**
-   * One or two ports made three with ports that carry nothing (W's identity, no
-   * transfer, open at both ends), so that they take the three-port solve.
-   */
-  private static padded(tables: PortTables): PortTables {
-    const { pattern, from, to, fixedVoltageRe, fixedVoltageIm, wRe, wIm, towardRe, towardIm } = tables;
-    const q = from.length;
-    const n = pattern.size;
-    const grow = (x: Float64Array) => {
-      const out = new Float64Array(3 * n);
-      out.set(x);
-      return out;
-    };
-    const paddedRe = new Float64Array(9);
-    const paddedIm = new Float64Array(9);
-    for (let a = 0; a < 3; a++)
-      for (let b = 0; b < 3; b++) {
-        paddedRe[a * 3 + b] = a < q && b < q ? wRe[a * q + b]! : a === b ? 1 : 0;
-        paddedIm[a * 3 + b] = a < q && b < q ? wIm[a * q + b]! : 0;
-      }
-    const ends = (x: Int32Array) => Int32Array.from({ length: 3 }, (_, a) => (a < q ? x[a]! : -1));
-    const volts = (x: Float64Array) => Float64Array.from({ length: 3 }, (_, a) => (a < q ? x[a]! : 0));
-    return { ...tables, from: ends(from), to: ends(to), fixedVoltageRe: volts(fixedVoltageRe), fixedVoltageIm: volts(fixedVoltageIm), wRe: paddedRe, wIm: paddedIm, towardRe: grow(towardRe), towardIm: grow(towardIm) };
+  /** Voltage across port a (from − to) of the vector at `offset` in `x` (elimination order), its fixed ends left out. */
+  private across(x: Float64Array, offset: number, a: number): number {
+    const f = this.portPositionFrom[a]!;
+    const t = this.portPositionTo[a]!;
+    return (f >= 0 ? x[offset + f]! : 0) - (t >= 0 ? x[offset + t]! : 0);
   }
 
   /**
@@ -222,6 +219,12 @@ export class LoadPortReduction {
    */
   openCircuit(rhsRe: Float64Array | null, rhsIm: Float64Array | null): void {
     this.injected = rhsRe !== null && rhsIm !== null;
+    if (rhsRe !== null && rhsIm !== null && this.injectedOpenRe.length === 0) {
+      this.injectedOpenRe = new Float64Array(this.pattern.size);
+      this.injectedOpenIm = new Float64Array(this.pattern.size);
+      this.injectedDriveRe = new Float64Array(this.portCount);
+      this.injectedDriveIm = new Float64Array(this.portCount);
+    }
     if (rhsRe !== null && rhsIm !== null)
       this.openCircuitInto(rhsRe, rhsIm, this.injectedOpenRe, this.injectedOpenIm, this.injectedDriveRe, this.injectedDriveIm);
   }
