@@ -396,7 +396,6 @@ export class CompiledNetwork {
     );
   }
 
-
   /**
    * True when the last solve's Newton path went through the load ports
    * (loadPortReduction.ts) rather than assembling and factorising the nodal matrix
@@ -811,7 +810,6 @@ export class CompiledNetwork {
     }
     this.held = held;
   }
-
 
   /** The right-hand side into the reduction: its sources alone (known since compile time) unless a caller injects current. */
   private openCircuit(reduction: LoadPortReduction): void {
