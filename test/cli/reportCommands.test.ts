@@ -109,6 +109,38 @@ describe('trivar report', () => {
     expect(readFileSync(join(dir, 'b.html'), 'utf8')).not.toContain('<section id="harmonics">');
   });
 
+  it('an installation with harmonic data: the overview and a section per board, figures as trivar harmonics gives them', () => {
+    const dir = scratch();
+    const r = runTrivar(['report', 'examples/harrow-yard-studios.yaml', '--format', 'md', '-o', join(dir, 'harrow.md')]);
+    expect(r.stderr).toBe('');
+    expect(r.code).toBe(0);
+    expect(readdirSync(dir)).toContain('harrow-board-workshop-impedance-scan.svg');
+    const md = readFileSync(join(dir, 'harrow.md'), 'utf8');
+    const study = JSON.parse(runTrivar(['harmonics', 'examples/harrow-yard-studios.yaml', '--json']).stdout) as {
+      boards: { board: string; lines: { current: { rms: number } }[]; neutral: { current: { rms: number } }; triplenNeutralA: number }[];
+      scans: { board: string; scan: { combinations: unknown[] } }[];
+    };
+    const overview = md.slice(md.indexOf('## Harmonics and resonance'), md.indexOf('## Harmonics — '));
+    for (const b of study.boards) {
+      expect(md).toMatch(new RegExp(`^## Harmonics — ${b.board}$`, 'm'));
+      const largest = Math.max(...b.lines.map((l) => l.current.rms));
+      // The overview row: board, busbar V THD, 519 verdict, largest feeder current, its THD, neutral A, triplen A.
+      const row = overview.split('\n').find((l) => l.startsWith(`| ${b.board} |`))!;
+      expect(row).toContain(`| ${largest.toFixed(1)} `);
+      expect(row).toContain(`| ${b.neutral.current.rms.toFixed(1)} | ${b.triplenNeutralA.toFixed(1)} |`);
+    }
+    // The bank's scan on its board's section: one row per bank state.
+    const workshop = md.slice(md.indexOf('## Harmonics — Workshop'), md.indexOf('## Harmonics — Studios ground'));
+    const scanRows = workshop.slice(workshop.indexOf('**Resonance with the supply seen from Workshop')).split('\n\n')[1]!.split('\n').slice(2);
+    expect(scanRows).toHaveLength(study.scans.find((s) => s.board === 'Workshop')!.scan.combinations.length);
+    expect(workshop).toMatch(/- \*\*Duty verdict:\*\* within limits in every state/);
+    // Its cautions close the report.
+    expect(md.slice(md.indexOf('## Safety cautions'))).toMatch(/Caution:/);
+    const html = join(dir, 'b.html');
+    expect(runTrivar(['report', 'examples/harrow-yard-studios.yaml', '--no-harmonics', '-o', html]).code).toBe(0);
+    expect(readFileSync(html, 'utf8')).not.toContain('-harmonics">');
+  });
+
   it('--profile-data adds the load-over-time section with its charts, figures as trivar profile gives them', () => {
     const dir = scratch();
     const data = join(dir, 'quay.csv');

@@ -232,6 +232,7 @@ export { renderReportMarkdown } from './render/report/renderReportMarkdown.js';
 export type { ProfileChart } from './render/report/profileSection.js';
 export { profileSection } from './render/report/profileSection.js';
 export { harmonicsSection } from './render/report/harmonicsSection.js';
+export { installationHarmonicsSections } from './render/report/installationHarmonicsSections.js';
 
 // Checking hand calculations (trivar check)
 export type { HandFiguresSpec, HandCapacitorSpec, HandBranch } from './handCheck/handFiguresSpec.js';

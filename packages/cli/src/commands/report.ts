@@ -22,6 +22,7 @@ import {
   solveBoardModel,
   solveInstallationModel,
   studyHarmonics,
+  studyInstallationHarmonics,
   type Board,
   type Installation,
   type InstallationSpec,
@@ -109,7 +110,9 @@ function installationDocument(raw: unknown, figures: unknown, options: ReportCom
   const { installation } = normaliseInstallation(spec);
   const result = solveInstallationModel(installation);
   const correction = options.correction !== false && spec.correction?.arrangement ? installationCorrectionOf(installation, spec.correction) : null;
-  return buildInstallationReport({ spec, result, correction });
+  const wantsHarmonics = spec.harmonics !== undefined || spec.boards.some((b) => b.loads.some((l) => l.spectrum !== undefined));
+  const harmonics = options.harmonics !== false && wantsHarmonics ? studyInstallationHarmonics(raw) : null;
+  return buildInstallationReport({ spec, result, correction, harmonics });
 }
 
 export async function runReport(file: string, options: ReportCommandOptions, io: CliIo, footer: string): Promise<void> {
