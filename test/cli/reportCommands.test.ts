@@ -141,6 +141,39 @@ describe('trivar report', () => {
     expect(readFileSync(html, 'utf8')).not.toContain('-harmonics">');
   });
 
+  it('a collapsed board or installation: the report is written and says so, and the exit status is trivar solve’s (4)', () => {
+    const dir = scratch();
+    const SUPPLY = 'supply: { system: three-phase-4wire, voltage: { lineToLine: 400 }, frequencyHz: 50';
+    const board = join(dir, 'board.yaml');
+    writeFileSync(board, `${SUPPLY}, transformer: { kVA: 100, impedancePercent: 4, xOverR: 3 } }\nloads: [{ name: plant, connection: ABC-delta, kW: 5000, pf: 0.9 }]\n`);
+    const installation = join(dir, 'installation.yaml');
+    writeFileSync(
+      installation,
+      `${SUPPLY} }\nboards:\n  - { name: Main, loads: [{ name: lights, connection: A-N, kW: 1 }] }\n  - { name: Far shed, fedFrom: Main, feeder: { lengthM: 500, line: { mm2: 2.5 }, neutral: { mm2: 2.5 } }, loads: [{ name: plant, connection: ABC-delta, kW: 200, pf: 0.9 }] }\n`,
+    );
+    for (const [file, where] of [[board, ''], [installation, 'Far shed: ']] as const) {
+      const solve = runTrivar(['solve', file]);
+      const out = join(dir, `${where ? 'installation' : 'board'}.html`);
+      const r = runTrivar(['report', file, '-o', out]);
+      expect(solve.code).toBe(4);
+      expect(r.code).toBe(solve.code);
+      // The same message as trivar solve's, naming the board in an installation.
+      expect(r.stderr).toBe(solve.stderr);
+      expect(r.stderr).toMatch(new RegExp(`^error: no viable operating point: the supply cannot carry these loads: ${where}the board voltage has collapsed`));
+      expect(readFileSync(out, 'utf8')).toMatch(/Supply collapse: the supply cannot carry these loads/);
+      // To standard output and as Markdown alike.
+      const stdout = runTrivar(['report', file]);
+      expect(stdout.code).toBe(4);
+      expect(stdout.stdout).toMatch(/^<!DOCTYPE html>[^]*Supply collapse[^]*<\/html>\n?$/);
+      const md = runTrivar(['report', file, '--format', 'md', '-o', join(dir, 'r.md')]);
+      expect(md.code).toBe(4);
+      expect(readFileSync(join(dir, 'r.md'), 'utf8')).toMatch(/Supply collapse/);
+    }
+    // A board that stands: exit 0, nothing on standard error.
+    const fine = runTrivar(['report', 'examples/maple-court-riser.yaml', '-o', join(dir, 'fine.html')]);
+    expect([fine.code, fine.stderr]).toEqual([0, '']);
+  });
+
   it('--profile-data adds the load-over-time section with its charts, figures as trivar profile gives them', () => {
     const dir = scratch();
     const data = join(dir, 'quay.csv');
