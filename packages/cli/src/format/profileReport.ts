@@ -147,7 +147,7 @@ function worstTable(s: ProfileSummary): string {
 }
 
 /** @param label the board file's phase labels (`labellerOf(conventionsOf(board).phaseNames)`) */
-export function renderProfileReport(r: ProfileResult, currency: string, label: PhaseLabeller = LETTERED): string {
+export function renderProfileReport(r: ProfileResult, currency: string, label: PhaseLabeller = labellerOf(r.phaseNames)): string {
   const s = r.before;
   const parts = [
     `${r.board} — load over time`,

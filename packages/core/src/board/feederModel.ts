@@ -5,6 +5,7 @@
 import { complex, scale, type ComplexValue } from '../complex.js';
 import type { ConductorSpec, FeederSpec, PerPhaseConductorSpec } from './boardSchema.js';
 import type { PhaseId } from './systemTopology.js';
+import { labelIn, type PhaseNaming } from './conventions/phaseNames.js';
 import { conductorResistance, DEFAULT_CABLE_REACTANCE_OHM_PER_KM, type ConductorMaterial, type ConductorSize } from './cableLibrary.js';
 
 const METRES_PER_FOOT = 0.3048;
@@ -67,14 +68,15 @@ export interface FeederModel {
   readonly description: string | null;
 }
 
-export function feederModel(feeder: FeederSpec | undefined, phases: readonly PhaseId[]): FeederModel {
+/** @param naming how the file names the phases: a description per phase uses it (`L1: …`) @defaultValue 'A/B/C' */
+export function feederModel(feeder: FeederSpec | undefined, phases: readonly PhaseId[], naming: PhaseNaming = 'A/B/C'): FeederModel {
   const line = feeder?.line;
   const perPhase = line && isPerPhaseLine(line) ? line : null;
   const conductorOf = (p: PhaseId): ConductorSpec | undefined => (perPhase ? perPhase[p] : (line as ConductorSpec | undefined));
   const ratings = phases.map((p) => conductorOf(p)?.ratingA).filter((a): a is number => a !== undefined);
   const lineWords = [...new Set(phases.map((p) => describeConductor(conductorOf(p), feeder)))];
   const neutralWords = describeConductor(feeder?.neutral, feeder);
-  const lineText = lineWords.length === 1 ? lineWords[0] : lineWords.every((w) => w !== null) ? phases.map((p) => `${p}: ${describeConductor(conductorOf(p), feeder)}`).join('; ') : null;
+  const lineText = lineWords.length === 1 ? lineWords[0] : lineWords.every((w) => w !== null) ? phases.map((p) => `${labelIn(naming, p)}: ${describeConductor(conductorOf(p), feeder)}`).join('; ') : null;
   const description = lineText ? (neutralWords && neutralWords !== lineText ? `${lineText}; neutral ${neutralWords}` : lineText) : null;
   return {
     lineImpedances: phases.map((p) => conductorImpedance(conductorOf(p), feeder)),

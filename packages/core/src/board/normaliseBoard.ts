@@ -165,7 +165,8 @@ export function normaliseBoard(spec: BoardBaseSpec): Board {
     return given ? polar(given.V, degToRad(given.angleDeg)) : polar(ln, degToRad(angles[k]!));
   });
   const unequal = unequalSource(spec, phases, ln, ll);
-  const feeder = feederModel(spec.feeder, phases);
+  const conventions = resolveConventions(spec, { ln, ll });
+  const feeder = feederModel(spec.feeder, phases, conventions.phaseNames);
   const first = feeder.lineImpedances[0]!;
   const unequalLines = feeder.lineImpedances.some((z) => z.re !== first.re || z.im !== first.im);
   return {
@@ -187,7 +188,7 @@ export function normaliseBoard(spec: BoardBaseSpec): Board {
     transformerKVA: spec.supply.impedance ? null : (spec.supply.transformer?.kVA ?? null),
     loads: spec.loads.map((load, i) => loadBranches(load, i, spec, ln, ll)),
     studies: { openNeutral: spec.studies?.openNeutral ?? false },
-    conventions: resolveConventions(spec, { ln, ll }),
+    conventions,
     ...unequal,
     ...(unequalLines ? { lineImpedances: feeder.lineImpedances } : {}),
   };

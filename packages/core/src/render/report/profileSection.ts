@@ -14,9 +14,9 @@ export interface ProfileChart {
 const orDash = (x: number | null, d: number): string => (x === null ? '—' : fixed(x, d));
 
 /**
- * @param naming the board's phase naming (`result.conventions.phaseNames`): conductors and phases are labelled that way @defaultValue 'A/B/C'
+ * @param naming the phase naming conductors and phases are labelled with @defaultValue the board's (`p.phaseNames`)
  */
-export function profileSection(p: ProfileResult, charts: readonly ProfileChart[], naming: PhaseNaming = 'A/B/C'): ReportSection {
+export function profileSection(p: ProfileResult, charts: readonly ProfileChart[], naming: PhaseNaming = p.phaseNames): ReportSection {
   const s = p.before;
   const label = labellerOf(naming);
   const blocks: ReportBlock[] = [
