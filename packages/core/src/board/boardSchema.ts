@@ -88,7 +88,7 @@ export const conductorSchema = z
     lengthM: within(PHYSICAL_RANGES.lengthM).optional().describe('route length, m'),
     lengthFt: within(PHYSICAL_RANGES.lengthFt).optional().describe('route length, ft'),
     rOhmPerKm: within(PHYSICAL_RANGES.ohmsPerKm).optional().describe('resistance per km of conductor, ohm/km'),
-    xOhmPerKm: within(PHYSICAL_RANGES.ohmsPerKm).optional().describe('reactance per km of conductor, ohm/km (default 0.08 for a library size)'),
+    xOhmPerKm: within(PHYSICAL_RANGES.ohmsPerKm).optional().describe('reactance per km of conductor at the supply frequency, ohm/km; default for a library size: AWG/kcmil NEC Chapter 9 Table 9 (PVC or aluminium conduit, 60 Hz), mm² 0.08 at 50 Hz, each scaled to the supply frequency'),
     mm2: within(PHYSICAL_RANGES.conductorMm2).optional().describe('metric size, mm² (resistance from IEC 60228 class 2)'),
     awg: z.string().max(AWG_MAX_CHARS).optional().describe('AWG size, e.g. "12" or "4/0" (resistance from NEC Chapter 9 Table 8)'),
     kcmil: within(PHYSICAL_RANGES.conductorKcmil).optional().describe('size in kcmil, e.g. 250 (NEC Chapter 9 Table 8)'),

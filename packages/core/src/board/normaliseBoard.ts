@@ -165,7 +165,7 @@ export function normaliseBoard(spec: BoardBaseSpec): Board {
     return given ? polar(given.V, degToRad(given.angleDeg)) : polar(ln, degToRad(angles[k]!));
   });
   const unequal = unequalSource(spec, phases, ln, ll);
-  const feeder = feederModel(spec.feeder, phases);
+  const feeder = feederModel(spec.feeder, phases, spec.supply.frequencyHz);
   const first = feeder.lineImpedances[0]!;
   const unequalLines = feeder.lineImpedances.some((z) => z.re !== first.re || z.im !== first.im);
   return {

@@ -23,7 +23,7 @@ export function normaliseInstallation(spec: InstallationBaseSpec): { installatio
   const subBoards: SubBoard[] = new Array(spec.boards.length - 1);
   spec.boards.forEach((b, i) => {
     if (i === mainIndex) return;
-    const feeder = feederModel(b.feeder, main.phases);
+    const feeder = feederModel(b.feeder, main.phases, main.frequencyHz);
     const board = normaliseBoard(boardSpecOf(spec, i));
     const limits = board.conventions?.voltageLimits;
     subBoards[boardNumber[i]! - 1] = {
@@ -35,6 +35,6 @@ export function normaliseInstallation(spec: InstallationBaseSpec): { installatio
       ...(limits && !sameLimits(limits, main.conventions?.voltageLimits) ? { voltageLimits: limits } : {}),
     };
   });
-  const serviceFeederDescription = feederModel(spec.boards[mainIndex]!.feeder, main.phases).description;
+  const serviceFeederDescription = feederModel(spec.boards[mainIndex]!.feeder, main.phases, main.frequencyHz).description;
   return { installation: { name: spec.name ?? main.name, main, subBoards, serviceFeederDescription }, boardNumber };
 }
