@@ -178,6 +178,12 @@ export const loadSchema = z.strictObject({
     .literal(BREAKER_POLES)
     .optional()
     .describe('poles of the breaker on line conductors (a 1P+N device is 1): 1 for a line-to-neutral load, 2 line-to-line, 3 three-phase'),
+  continuous: z
+    .boolean()
+    .optional()
+    .describe(
+      'whether the load can run at its rating for 3 h or more (a continuous load); default true. On a North-American board a continuous load is warned about above 80 % of its breaker rating (NEC 210.20(A)), any other load above 100 %',
+    ),
   connection: z.enum(CONNECTIONS).describe('where the load connects'),
   starPoint: z
     .enum(STAR_POINTS)

@@ -124,6 +124,7 @@ function loadBranches(load: LoadBaseSpec, index: number, spec: BoardBaseSpec, ln
       ...(load.circuit !== undefined ? { circuit: load.circuit } : {}),
       ...(load.breakerA !== undefined ? { breakerA: load.breakerA } : {}),
       ...(load.poles !== undefined ? { poles: load.poles } : {}),
+      ...(load.continuous !== undefined ? { continuous: load.continuous } : {}),
     };
     return {
       name: load.name,
