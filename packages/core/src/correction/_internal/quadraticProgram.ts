@@ -41,9 +41,9 @@ const PROBE_STEPS = 24;
  *
  * Every candidate active set is judged as in a plain enumeration (in the same order, by the same
  * arithmetic: the answer is the same to the last bit), but a set is skipped when it cannot win: its
- * equality-constrained minimum is at least that of each of its members alone (a minimum over a
- * smaller affine set), so a set holding a constraint whose one-constraint minimum already lies above
- * a qualifying set's value can only lose. The qualifying set that gives the first such upper bound
+ * equality-constrained minimum is at least that of each of its subsets (a minimum over a larger
+ * affine set), so a set holding a subset of one member fewer whose minimum already lies above a
+ * qualifying set's value can only lose. The qualifying set that gives the first such upper bound
  * is found by a few add-the-most-violated / drop-the-most-negative steps from the empty set.
  */
 export function solveQuadraticProgram(qp: QuadraticProgram): number[] | null {
@@ -115,27 +115,54 @@ export function solveQuadraticProgram(qp: QuadraticProgram): number[] | null {
     }
     return 3;
   };
-  // Each constraint's one-constraint minimum (NaN where that system is singular), from the enumeration's k = 1 pass.
-  const alone = new Float64Array(m).fill(NaN);
-  const aloneSize = new Float64Array(m);
   // An upper bound on the winner's value: the value of a set known to qualify.
   let upper = Infinity;
   let upperSize = 0;
   let unconstrainedSize = 0;
-  const cannotWin = (i: number) => alone[i]! - upper > PRUNING_MARGIN * (aloneSize[i]! + upperSize + unconstrainedSize) + PRUNING_FLOOR;
+  const cannotWin = (bound: number, boundSize: number) => bound - upper > PRUNING_MARGIN * (boundSize + upperSize + unconstrainedSize) + PRUNING_FLOOR;
+  // Lower bounds of the previous level's sets, by bit mask of their members: the equality-constrained
+  // minimum where the set was solved, the bound it was skipped on where it was skipped; none where
+  // its system is singular. (Up to 52 constraints, the masks being exact in a double; more keep the
+  // one-constraint minima only.)
+  const byMask = m <= 52;
+  let previous = new Map<number, number>();
+  let previousSize = new Map<number, number>();
+  const alone = new Float64Array(m).fill(NaN);
+  const aloneSize = new Float64Array(m);
   for (let k = 0; k <= most; k++) {
     if (k === 2 && upper === Infinity) [upper, upperSize] = probeUpperBound();
+    const current = new Map<number, number>();
+    const currentSize = new Map<number, number>();
+    const remember = (set: number, bound: number, boundSize: number) => {
+      current.set(set, bound);
+      currentSize.set(set, boundSize);
+    };
     // Every k-element subset of the constraints in lexicographic order, held in `active`.
     for (let i = 0; i < k; i++) active[i] = i;
     for (let more = true; more; more = nextSubset(active, k, m)) {
+      let mask = 0;
+      if (byMask) for (let a = 0; a < k; a++) mask += 2 ** active[a]!;
       if (k >= 2) {
-        let skip = false;
-        for (let a = 0; a < k && !skip; a++) skip = cannotWin(active[a]!);
-        if (skip) continue;
+        // Skipped when a set of one member fewer already has its minimum above the upper bound.
+        let bound = NaN;
+        let boundSize = 0;
+        for (let a = 0; a < k && Number.isNaN(bound); a++) {
+          const without = mask - 2 ** active[a]!;
+          const v = byMask ? previous.get(without) : alone[active[a]!];
+          const vSize = byMask ? previousSize.get(without) : aloneSize[active[a]!];
+          if (v !== undefined && vSize !== undefined && cannotWin(v, vSize)) [bound, boundSize] = [v, vSize];
+        }
+        if (!Number.isNaN(bound)) {
+          if (byMask) remember(mask, bound, boundSize);
+          continue;
+        }
       }
       const verdict = judge(active, k);
-      if (k === 0 && verdict > 0) unconstrainedSize = size;
-      if (k === 1 && verdict > 0) [alone[active[0]!], aloneSize[active[0]!]] = [value, size];
+      if (verdict > 0) {
+        if (byMask) remember(mask, value, size);
+        if (k === 0) unconstrainedSize = size;
+        if (k === 1) [alone[active[0]!], aloneSize[active[0]!]] = [value, size];
+      }
       if (verdict < 3) continue;
       if (value < upper) [upper, upperSize] = [value, size];
       if (value < bestValue) {
@@ -143,6 +170,8 @@ export function solveQuadraticProgram(qp: QuadraticProgram): number[] | null {
         bestValue = value;
       }
     }
+    previous = current;
+    previousSize = currentSize;
   }
   return best;
 
