@@ -33,6 +33,8 @@ const TOLERANCE = 1e-12;
 const PRUNING_MARGIN = 1e-7;
 /** And at least this: values near the subnormal range (from 2.2e-308) carry no relative precision. */
 const PRUNING_FLOOR = 1e-300;
+/** Most sets of one size whose bounds are kept for the next size (two doubles each). */
+const MAX_LEVEL_SETS = 1 << 18;
 /** Add/drop steps of the search for an early qualifying set (only an upper bound for skipping). */
 const PROBE_STEPS = 24;
 
@@ -120,46 +122,56 @@ export function solveQuadraticProgram(qp: QuadraticProgram): number[] | null {
   let upperSize = 0;
   let unconstrainedSize = 0;
   const cannotWin = (bound: number, boundSize: number) => bound - upper > PRUNING_MARGIN * (boundSize + upperSize + unconstrainedSize) + PRUNING_FLOOR;
-  // Lower bounds of the previous level's sets, by bit mask of their members: the equality-constrained
-  // minimum where the set was solved, the bound it was skipped on where it was skipped; none where
-  // its system is singular. (Up to 52 constraints, the masks being exact in a double; more keep the
-  // one-constraint minima only.)
-  const byMask = m <= 52;
-  let previous = new Map<number, number>();
-  let previousSize = new Map<number, number>();
+  // Lower bounds of the previous level's sets, each at its colex rank Σ C(cᵢ, i + 1): the
+  // equality-constrained minimum where the set was solved, the bound it was skipped on where it was
+  // skipped, NaN where its system is singular. A level of more than `MAX_LEVEL_SETS` sets keeps the
+  // one-constraint minima only.
+  const binomial = (x: number, y: number): number => {
+    let r = 1;
+    for (let i = 0; i < y; i++) r = (r * (x - i)) / (i + 1);
+    return y < 0 || x < y ? 0 : Math.round(r);
+  };
+  const choose: Float64Array[] = Array.from({ length: m + 1 }, (_, x) => Float64Array.from({ length: most + 2 }, (__, y) => binomial(x, y)));
+  let previous = new Float64Array(0);
+  let previousSize = new Float64Array(0);
+  let previousKept = false;
   const alone = new Float64Array(m).fill(NaN);
   const aloneSize = new Float64Array(m);
   for (let k = 0; k <= most; k++) {
     if (k === 2 && upper === Infinity) [upper, upperSize] = probeUpperBound();
-    const current = new Map<number, number>();
-    const currentSize = new Map<number, number>();
-    const remember = (set: number, bound: number, boundSize: number) => {
-      current.set(set, bound);
-      currentSize.set(set, boundSize);
-    };
+    const count = choose[m]![k]!;
+    const kept = count <= MAX_LEVEL_SETS;
+    const current = new Float64Array(kept ? count : 0).fill(NaN);
+    const currentSize = new Float64Array(kept ? count : 0);
+    const byRank = kept && previousKept;
     // Every k-element subset of the constraints in lexicographic order, held in `active`.
     for (let i = 0; i < k; i++) active[i] = i;
     for (let more = true; more; more = nextSubset(active, k, m)) {
-      let mask = 0;
-      if (byMask) for (let a = 0; a < k; a++) mask += 2 ** active[a]!;
+      let rank = 0;
+      if (kept) for (let a = 0; a < k; a++) rank += choose[active[a]!]![a + 1]!;
       if (k >= 2) {
         // Skipped when a set of one member fewer already has its minimum above the upper bound.
         let bound = NaN;
         let boundSize = 0;
         for (let a = 0; a < k && Number.isNaN(bound); a++) {
-          const without = mask - 2 ** active[a]!;
-          const v = byMask ? previous.get(without) : alone[active[a]!];
-          const vSize = byMask ? previousSize.get(without) : aloneSize[active[a]!];
-          if (v !== undefined && vSize !== undefined && cannotWin(v, vSize)) [bound, boundSize] = [v, vSize];
+          let v = alone[active[a]!]!;
+          let vSize = aloneSize[active[a]!]!;
+          if (byRank) {
+            let without = 0;
+            for (let b = 0; b < k; b++) if (b !== a) without += choose[active[b]!]![b < a ? b + 1 : b]!;
+            v = previous[without]!;
+            vSize = previousSize[without]!;
+          }
+          if (cannotWin(v, vSize)) [bound, boundSize] = [v, vSize];
         }
         if (!Number.isNaN(bound)) {
-          if (byMask) remember(mask, bound, boundSize);
+          if (kept) [current[rank], currentSize[rank]] = [bound, boundSize];
           continue;
         }
       }
       const verdict = judge(active, k);
       if (verdict > 0) {
-        if (byMask) remember(mask, value, size);
+        if (kept) [current[rank], currentSize[rank]] = [value, size];
         if (k === 0) unconstrainedSize = size;
         if (k === 1) [alone[active[0]!], aloneSize[active[0]!]] = [value, size];
       }
@@ -172,6 +184,7 @@ export function solveQuadraticProgram(qp: QuadraticProgram): number[] | null {
     }
     previous = current;
     previousSize = currentSize;
+    previousKept = kept;
   }
   return best;
 
