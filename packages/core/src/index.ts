@@ -180,10 +180,12 @@ export { solveInstallationAtOrder, installationAtOrder } from './harmonics/insta
 export { createInstallationScanEvaluator } from './harmonics/scanEvaluator.js';
 export type { FixedInstallationInput } from './network/solveFixedInstallation.js';
 export { solveFixedInstallation } from './network/solveFixedInstallation.js';
-export type { ScanEvaluator } from './harmonics/scanEvaluator.js';
-export { scanResonance, createScanEvaluator, scanGrid, stepCombinations } from './harmonics/scanResonance.js';
+export type { ScanEvaluator, ScanBank, BankState } from './harmonics/scanEvaluator.js';
+export type { JointScanOptions, NetworkState } from './harmonics/scanJointResonance.js';
+export { scanJointResonance, scanNetworkStates, controllerLevels } from './harmonics/scanJointResonance.js';
+export { scanResonance, createScanEvaluator, scanGrid, stepCombinations, roundForPlot, shortCircuitVA } from './harmonics/scanResonance.js';
 export { DUTY_LIMITS, dutyFigures } from './harmonics/capacitorDuty.js';
-export { dutyConditions, withCapacitanceFactor, withLoadsOff, conditionWords } from './harmonics/dutyConditions.js';
+export { dutyConditions, withCapacitanceFactor, withLoadsOff, withOtherBanksOff, conditionWords } from './harmonics/dutyConditions.js';
 export { tuningOrder, capacitorVoltage, detunedOutputKvar, detunedSusceptance, DETUNING_FACTORS_PERCENT } from './harmonics/detuning.js';
 export { ieee519OrderLimit, ieee519Row } from './harmonics/ieee519.js';
 export { HARMONICS_DEFAULTS } from './harmonics/harmonicsDefaults.js';
