@@ -28,8 +28,9 @@ export const HARMONICS_DEFAULTS = {
   peakProminence: 0.05,
   /**
    * Most networks scanned from one bank's board with the other banks switched (its states × theirs):
-   * each is a full scan, about 40 ms at 481 points on a four-board installation (measured, see the
-   * joint scan's test). Above it the other banks are taken at their extremes.
+   * each is a full scan, 7–9 ms at 481 points on a three-board installation (examples/ferrybank-joinery.yaml
+   * on a shared two-core machine), so the limit is half a minute at most. Above it the other banks
+   * are taken at their extremes.
    */
   jointStateLimit: 4096,
 } as const;
