@@ -189,7 +189,7 @@ export { dutyConditions, withCapacitanceFactor, withLoadsOff, withOtherBanksOff,
 export { tuningOrder, capacitorVoltage, detunedOutputKvar, detunedSusceptance, DETUNING_FACTORS_PERCENT } from './harmonics/detuning.js';
 export { ieee519OrderLimit, ieee519Row } from './harmonics/ieee519.js';
 export { HARMONICS_DEFAULTS } from './harmonics/harmonicsDefaults.js';
-export { HARMONICS_CAUTIONS } from './harmonics/harmonicsWording.js';
+export { HARMONICS_CAUTIONS, jointCoverageWords, nearestWords } from './harmonics/harmonicsWording.js';
 export type { FixedNetworkInput } from './network/solveFixedNetwork.js';
 export { solveFixedNetwork } from './network/solveFixedNetwork.js';
 export type { NodalMatrix } from './network/terminalImpedance.js';

@@ -39,7 +39,9 @@ export const harmonicsWarningText = {
     `resonance with the supply at h ≈ ${peak.toFixed(2)}, within ±10 % of order ${order}, with the bank at ${states.length > 3 ? `${states.slice(0, 3).join(', ')} and ${states.length - 3} more state(s)` : states.join(', ')}: voltages and capacitor currents are amplified there`,
   /** A resonance near `order` only with other banks switched: `state` names this bank's state and the others'. */
   resonanceOtherBanks: (state: string, others: string, peak: number, order: number, moreStates: number) =>
-    `${state} with ${others}: resonance with the supply at h ≈ ${peak.toFixed(2)}, within ±10 % of order ${order}${moreStates > 0 ? ` (and ${moreStates} more state(s) of this bank with other banks switched)` : ''}; with every other bank on it stays clear of that order, so voltages and capacitor currents are amplified there only when the other banks step down`,
+    `${state} with ${others}: resonance with the supply at h ≈ ${peak.toFixed(2)}, within ±10 % of order ${order}${
+      moreStates > 0 ? ` (likewise ${moreStates} more state${moreStates > 1 ? 's' : ''} of this bank)` : ''
+    }; with every other bank fully on that state is clear of order ${order}, so voltages and capacitor currents are amplified there when the other banks step down`,
   capacitorDuty: (label: string, branch: string, what: string) => `with ${label} the capacitors of branch ${branch} exceed their limit: ${what}`,
   voltageThd: (bus: string, thd: number, limit: number) => `voltage THD at the board on ${bus} is ${above(thd, limit)}, above the ${limit} % IEEE 519 limit for ≤ 1 kV`,
   voltageIndividual: (buses: readonly BusVoltageDistortion[], limit: number) =>
@@ -54,6 +56,21 @@ export const harmonicsWarningText = {
 
 /** A bank's state in words: `Workshop bank off`, `Workshop bank steps 1+2`. */
 export const bankStateWords = (board: string, label: string): string => `${board} bank ${label === 'bank off' ? 'off' : label}`;
+
+/** What a joint scan covered, in words: each other bank's levels and how they were chosen. */
+export function jointCoverageWords(joint: JointScan): string {
+  const how =
+    joint.coverage === 'controller levels'
+      ? 'every level a controller steps each through, combined'
+      : joint.coverage === 'each off or fully on'
+        ? `each only off or fully on: their levels combined would pass ${joint.stateLimit} networks`
+        : `only all off together and all fully on together: their levels combined would pass ${joint.stateLimit} networks`;
+  return `other banks scanned at ${joint.otherBanks.map((o) => `${o.board}: ${o.levels.map((l) => l.label).join(', ')}`).join('; ')} (${how}; ${joint.networkStates} networks)`;
+}
+
+/** The nearest approach of a peak to a checked order, in words: `h 7.12, 1.7 % from 7`. */
+export const nearestWords = (n: { readonly order: number; readonly checkedOrder: number }): string =>
+  `h ${n.order.toFixed(2)}, ${((100 * Math.abs(n.order - n.checkedOrder)) / n.checkedOrder).toFixed(1)} % from ${n.checkedOrder}`;
 
 export const harmonicsAssumptionText = {
   jointScan:

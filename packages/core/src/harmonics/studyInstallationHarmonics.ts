@@ -121,14 +121,15 @@ function installationAssumptions(main: Board, models: readonly HarmonicModel[], 
 }
 
 /**
- * One warning per checked order that a peak comes within ±10 % of only with another bank switched
- * (the scan with every other bank on warns of its own), naming the state whose peak is nearest.
+ * One warning per checked order that some state of this bank comes within ±10 % of only with another
+ * bank switched — that state clear of it with every other bank on, where the scan's own warning
+ * covers it — naming the state whose peak is nearest.
  */
 function jointResonanceWarnings(board: string, scan: ResonanceScan, joint: JointScan): HarmonicsWarning[] {
-  const warnedAlready = new Set(scan.combinations.flatMap((c) => c.nearOrders));
   return scan.checkedOrders.flatMap((o) => {
-    if (warnedAlready.has(o)) return [];
-    const hits = joint.combinations.flatMap((c) => c.nearOrders.filter((n) => n.order === o).map((n) => ({ label: c.label, peak: n.peak })));
+    const hits = joint.combinations.flatMap((c, k) =>
+      scan.combinations[k]!.nearOrders.includes(o) ? [] : c.nearOrders.filter((n) => n.order === o).map((n) => ({ label: c.label, peak: n.peak })),
+    );
     if (hits.length === 0) return [];
     const closest = hits.reduce((b, x) => (Math.abs(x.peak.order - o) < Math.abs(b.peak.order - o) ? x : b));
     const states = new Set(hits.map((x) => x.label)).size;
