@@ -7,7 +7,7 @@ import { jointCoverageWords, nearestWords, type BoardHarmonics, type Installatio
 import { fixed, renderTable, renderTableWithin, section } from './textTable.js';
 import { wrapText } from './wrapText.js';
 import { treeName } from './boardTree.js';
-import { currentTable, dutyLines, labeller, neutralLines, prose, resonanceTitle, scanLine, scanTable, spectraLines, tddLines, voltageTable } from './harmonicsReport.js';
+import { alikeStates, currentTable, dutyLines, labeller, neutralLines, prose, resonanceTitle, scanLine, scanTable, spectraLines, tddLines, voltageTable } from './harmonicsReport.js';
 
 
 /** The busbar voltage with the highest THD: its label and THD. */
@@ -55,14 +55,7 @@ const note = (text: string) => wrapText(text, '  (', '   ');
  * table; under each row, the other banks' state of its nearest approach to a checked order.
  */
 function jointScanTable(joint: JointScan): string {
-  const groups = new Map<string, { labels: string[]; c: JointScan['combinations'][number] }>();
-  for (const c of joint.combinations) {
-    const key = fixed(c.capacitorKvar, 2);
-    const g = groups.get(key);
-    if (g) g.labels.push(c.label);
-    else groups.set(key, { labels: [c.label], c });
-  }
-  const list = [...groups.values()];
+  const list = alikeStates(joint.combinations);
   const rows = list.map(({ labels, c }) => [
     labels.length > 2 ? `${labels[0]} (+${labels.length - 1} alike)` : labels.join(', '),
     fixed(c.capacitorKvar, 1),
