@@ -246,6 +246,9 @@ describe('joint scan on random installations', () => {
     expect(report.assumptions.some((a) => a.includes('Plant A') && a.includes('more than 2 networks') && a.includes('intermediate levels are not covered'))).toBe(true);
     const roomy = studyInstallationHarmonics(TWO_BANKS, { jointStateLimit: 6 });
     expect(roomy.scans[0]!.jointScan!.coverage).toBe('controller levels');
+    for (const bad of [0, 2.5, Number.NaN]) {
+      expect(() => studyInstallationHarmonics(TWO_BANKS, { jointStateLimit: bad })).toThrow(/jointStateLimit.*whole number of networks, at least 1/);
+    }
   });
 });
 

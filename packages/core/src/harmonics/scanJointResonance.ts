@@ -14,6 +14,7 @@
  * on), and above it again all together off or all on; the result says which.
  */
 import type { Board } from '../board/boardModel.js';
+import { InputError, inputIssue } from '../errors.js';
 import type { InstallationSolution } from '../network/solveNetwork.js';
 import { HARMONICS_DEFAULTS } from './harmonicsDefaults.js';
 import { stateKey, type BankModel, type HarmonicModel } from './harmonicModel.js';
@@ -97,14 +98,16 @@ const stateWords = (boards: readonly string[], levels: readonly Level[]) => leve
 const nearness = (peak: ScanPeak, order: number) => Math.abs(peak.order - order) / order;
 
 /**
- * Scans the resonance seen from board `boardIndex` for every combination of its bank's steps
- * with the other banks switched; null when the installation has no other bank.
+ * Scans the resonance seen from the evaluator's board for every combination of its bank's steps
+ * with the other banks switched; null when the board has no bank or the installation no other bank.
  * @param fundamental the installation solved with every bank part on
+ * @throws {InputError} for a `stateLimit` that is not a whole number ≥ 1
  */
 export function scanJointResonance(fundamental: InstallationSolution, models: readonly HarmonicModel[], evaluator: ScanEvaluator, options: JointScanOptions): JointScan | null {
   const own = evaluator.ownBank;
   if (own < 0 || evaluator.banks.length < 2) return null;
   const limit = options.stateLimit ?? HARMONICS_DEFAULTS.jointStateLimit;
+  if (!Number.isInteger(limit) || limit < 1) throw new InputError([inputIssue('out_of_range', 'jointStateLimit', 'a whole number of networks, at least 1', limit)]);
   const boardOf = (k: number) => fundamental.boards[evaluator.banks[k]!.board]!.board;
   const ownBoard = boardOf(own);
   const bank = models[evaluator.banks[own]!.board]!.bank!;
