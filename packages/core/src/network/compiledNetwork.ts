@@ -110,8 +110,6 @@ export class CompiledNetwork {
   private readonly zipZ: Float64Array;
   private readonly zipI: Float64Array;
   private readonly zipP: Float64Array;
-  /** 1/vNominal² per branch (vNominal is fixed at compile time). */
-  private readonly inverseSquareNominal: Float64Array;
   private readonly allImpedance: boolean;
   // Newton on magnitudes (see solveByMagnitudes): one pair per node pair with a voltage-dependent branch.
   private readonly pairCount: number;
@@ -166,7 +164,6 @@ export class CompiledNetwork {
     this.zipZ = new Float64Array(m);
     this.zipI = new Float64Array(m);
     this.zipP = new Float64Array(m);
-    this.inverseSquareNominal = new Float64Array(m);
     this.bFrom = new Int32Array(m);
     this.bTo = new Int32Array(m);
     let allImpedance = true;
@@ -178,7 +175,6 @@ export class CompiledNetwork {
       this.zipZ[k] = b.zip.z;
       this.zipI[k] = b.zip.i;
       this.zipP[k] = b.zip.p;
-      this.inverseSquareNominal[k] = 1 / (b.vNominal * b.vNominal);
       this.bFrom[k] = b.from;
       this.bTo[k] = b.to;
       if (b.zip.z !== 1) allImpedance = false;
@@ -718,7 +714,10 @@ export class CompiledNetwork {
         let mismatch = 0;
         for (let g = 0; g < q; g++) mismatch = Math.max(mismatch, Math.abs(res[g]!));
         if ((change * rate <= options.tolerance || change <= ROUND_OFF_CHANGE) && mismatch <= options.tolerance * vBase) {
-          if (reduction) this.scatterVoltages();
+          // The node voltages themselves from the nodal matrix at these admittances, as on every
+          // other path: quantities equal in exact arithmetic (a single-phase board's line and
+          // neutral currents) then round alike whichever path found the magnitudes.
+          if (reduction) this.solveLinear();
           this.iterations = solves;
           this.lastChange = change;
           this.method = 'newton';
@@ -761,7 +760,6 @@ export class CompiledNetwork {
     const pairOf = this.pairOf;
     const portOf = this.portOf;
     const vNominal = this.vNominal;
-    const inverseSquare = this.inverseSquareNominal;
     const zipZ = this.zipZ;
     const zipI = this.zipI;
     const zipP = this.zipP;
@@ -791,7 +789,7 @@ export class CompiledNetwork {
       const ratio = v0 / Math.max(v, floor);
       const zi = zipI[k]!;
       const zp = zipP[k]!;
-      const factor = (zipZ[k]! + zi * ratio + zp * ratio * ratio) * inverseSquare[k]!;
+      const factor = (zipZ[k]! + zi * ratio + zp * ratio * ratio) / (v0 * v0);
       const yr = powerRe[k]! * factor;
       const yi = -powerIm[k]! * factor;
       this.admittanceRe[k] = yr;
@@ -802,8 +800,7 @@ export class CompiledNetwork {
         portIm[port] = portIm[port]! + yi;
       }
       if (slopes && g >= 0 && v > floor) {
-        // dY/dm = −S̄·(i·ratio + 2p·ratio²)/(m·v0²), and 1/m = ratio/v0 here.
-        const slope = -(zi + 2 * zp * ratio) * ratio * ratio * inverseSquare[k]! / v0;
+        const slope = -(zi * ratio + 2 * zp * ratio * ratio) / (v * v0 * v0);
         slopeRe[g] = slopeRe[g]! + powerRe[k]! * slope;
         slopeIm[g] = slopeIm[g]! - powerIm[k]! * slope;
       }
