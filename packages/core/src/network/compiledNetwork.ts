@@ -669,7 +669,8 @@ export class CompiledNetwork {
    * respect to each pair's magnitude (dV/dm = −Y⁻¹·e·(dY/dm)·v), hence φ', and the
    * magnitudes move by (I − φ')⁻¹·(φ(m) − m). On a small network whose fixed part
    * reduces to its load ports (loadPortReduction.ts) each solve is a dense one on the
-   * ports, whose inverse is the transfer impedance φ' needs; otherwise it assembles
+   * ports, whose inverse is the transfer impedance φ' needs, and the node voltages of
+   * the settled state come from one nodal solve at its admittances; otherwise it assembles
    * and factorises the nodal matrix, and φ' takes one substitution per pair. The
    * state is kept only where the fixed-point iteration contracts at every step
    * (every row sum of |φ'| below CONTRACTION_LIMIT),
