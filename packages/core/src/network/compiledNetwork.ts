@@ -695,12 +695,17 @@ export class CompiledNetwork {
     for (let solves = 1; solves <= most; solves++) {
       this.admittancesAtMagnitudes(threshold, true);
       if (this.held) return false;
+      // Through the ports while the step is still large; from the third solve on (the one
+      // that usually confirms the state) the nodal matrix itself, whose node voltages are
+      // the answer's.
+      const viaPorts = reduction !== null && solves < 3;
       let moved: number;
-      if (reduction) {
+      if (viaPorts) {
         moved = reduction.solvePorts(this.xRe, this.xIm);
         if (moved < 0) return false;
         this.portResiduals(reduction);
       } else {
+        if (reduction) this.keepVoltages();
         this.solveLinear();
         this.pairResiduals();
         moved = solves > 1 ? this.change() : 0;
@@ -718,7 +723,7 @@ export class CompiledNetwork {
           // The node voltages themselves from the nodal matrix at these admittances, as on every
           // other path: quantities equal in exact arithmetic (a single-phase board's line and
           // neutral currents) then round alike whichever path found the magnitudes.
-          if (reduction) this.solveLinear();
+          if (viaPorts) this.solveLinear();
           this.iterations = solves;
           this.lastChange = change;
           this.method = 'newton';
@@ -727,7 +732,7 @@ export class CompiledNetwork {
         if (solves > 2 && !(rate < 1)) return false;
         previousChange = change;
       }
-      if (reduction) {
+      if (viaPorts) {
         reduction.loadedTransfer();
         if (!this.prepareJacobian(reduction.inverseRe, reduction.inverseIm, reduction.portCount)) return false;
       } else if (!this.factored) return false;
@@ -735,7 +740,7 @@ export class CompiledNetwork {
         this.sparseTransfer();
         if (!this.prepareJacobian(this.transferRe, this.transferIm, q)) return false;
       }
-      if (!reduction) this.keepVoltages();
+      if (!viaPorts) this.keepVoltages();
       if (q === 3) multiplyReal3(this.jacobian, res);
       else solveRealFactored(this.jacobian, q, this.pivots, res);
       for (let g = 0; g < q; g++) {
