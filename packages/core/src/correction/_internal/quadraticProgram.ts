@@ -122,6 +122,7 @@ export function solveQuadraticProgram(qp: QuadraticProgram): number[] | null {
   let upperSize = 0;
   let unconstrainedSize = 0;
   const cannotWin = (bound: number, boundSize: number) => bound - upper > PRUNING_MARGIN * (boundSize + upperSize + unconstrainedSize) + PRUNING_FLOOR;
+  // (Plain assignments below, not destructuring: unoptimised code builds an iterator for each.)
   // Lower bounds of the previous level's sets, each at its colex rank Σ C(cᵢ, i + 1): the
   // equality-constrained minimum where the set was solved, the bound it was skipped on where it was
   // skipped, NaN where its system is singular. A level of more than `MAX_LEVEL_SETS` sets keeps the
@@ -131,7 +132,8 @@ export function solveQuadraticProgram(qp: QuadraticProgram): number[] | null {
     for (let i = 0; i < y; i++) r = (r * (x - i)) / (i + 1);
     return y < 0 || x < y ? 0 : Math.round(r);
   };
-  const choose: Float64Array[] = Array.from({ length: m + 1 }, (_, x) => Float64Array.from({ length: most + 2 }, (__, y) => binomial(x, y)));
+  // Whole numbers, so ranks add up without boxing doubles (capped: a larger entry is only read on a level not kept).
+  const choose: Int32Array[] = Array.from({ length: m + 1 }, (_, x) => Int32Array.from({ length: most + 2 }, (__, y) => Math.min(binomial(x, y), 2 ** 30)));
   let previous = new Float64Array(0);
   let previousSize = new Float64Array(0);
   let previousKept = false;
@@ -162,21 +164,36 @@ export function solveQuadraticProgram(qp: QuadraticProgram): number[] | null {
             v = previous[without]!;
             vSize = previousSize[without]!;
           }
-          if (cannotWin(v, vSize)) [bound, boundSize] = [v, vSize];
+          if (cannotWin(v, vSize)) {
+            bound = v;
+            boundSize = vSize;
+          }
         }
         if (!Number.isNaN(bound)) {
-          if (kept) [current[rank], currentSize[rank]] = [bound, boundSize];
+          if (kept) {
+            current[rank] = bound;
+            currentSize[rank] = boundSize;
+          }
           continue;
         }
       }
       const verdict = judge(active, k);
       if (verdict > 0) {
-        if (kept) [current[rank], currentSize[rank]] = [value, size];
+        if (kept) {
+          current[rank] = value;
+          currentSize[rank] = size;
+        }
         if (k === 0) unconstrainedSize = size;
-        if (k === 1) [alone[active[0]!], aloneSize[active[0]!]] = [value, size];
+        if (k === 1) {
+          alone[active[0]!] = value;
+          aloneSize[active[0]!] = size;
+        }
       }
       if (verdict < 3) continue;
-      if (value < upper) [upper, upperSize] = [value, size];
+      if (value < upper) {
+        upper = value;
+        upperSize = size;
+      }
       if (value < bestValue) {
         best = Array.from(sol.subarray(0, n));
         bestValue = value;
@@ -212,7 +229,10 @@ export function solveQuadraticProgram(qp: QuadraticProgram): number[] | null {
         let s = 0;
         for (let j = 0; j < n; j++) s = s + rows[i * n + j]! * sol[j]!;
         const gap = (bounds[i]! - s) / norms[i]!;
-        if (gap > worstGap) [pick, worstGap] = [i, gap];
+        if (gap > worstGap) {
+          pick = i;
+          worstGap = gap;
+        }
       }
       if (pick < 0) break;
       let at = k;
