@@ -35,6 +35,11 @@ const PRUNING_MARGIN = 1e-7;
 const PRUNING_FLOOR = 1e-300;
 /** Most sets of one size whose bounds are kept for the next size (two doubles each). */
 const MAX_LEVEL_SETS = 1 << 18;
+/**
+ * Below this many active sets in all the programme is simply enumerated: the bookkeeping costs
+ * more than it saves (the compensator's own sizing, 6 unknowns and 9 constraints: 466 sets).
+ */
+const SKIPPING_FROM = 1000;
 /** Add/drop steps of the search for an early qualifying set (only an upper bound for skipping). */
 const PROBE_STEPS = 24;
 
@@ -47,8 +52,9 @@ const PROBE_STEPS = 24;
  * affine set), so a set holding a subset of one member fewer whose minimum already lies above a
  * qualifying set's value can only lose. The qualifying set that gives the first such upper bound
  * is found by a few add-the-most-violated / drop-the-most-negative steps from the empty set.
+ * @param skippingFrom fewest active sets in all for which sets are skipped (tests pass 0 to skip on any programme)
  */
-export function solveQuadraticProgram(qp: QuadraticProgram): number[] | null {
+export function solveQuadraticProgram(qp: QuadraticProgram, skippingFrom = SKIPPING_FROM): number[] | null {
   const n = qp.c.length;
   const m = qp.rows.length;
   const norms = qp.rows.map((r) => Math.hypot(...r) || 1);
@@ -139,10 +145,13 @@ export function solveQuadraticProgram(qp: QuadraticProgram): number[] | null {
   let previousKept = false;
   const alone = new Float64Array(m).fill(NaN);
   const aloneSize = new Float64Array(m);
+  let sets = 0;
+  for (let k = 0; k <= most; k++) sets += choose[m]![k]!;
+  const skipping = sets >= skippingFrom;
   for (let k = 0; k <= most; k++) {
-    if (k === 2 && upper === Infinity) [upper, upperSize] = probeUpperBound();
+    if (skipping && k === 2 && upper === Infinity) [upper, upperSize] = probeUpperBound();
     const count = choose[m]![k]!;
-    const kept = count <= MAX_LEVEL_SETS;
+    const kept = skipping && count <= MAX_LEVEL_SETS;
     const current = new Float64Array(kept ? count : 0).fill(NaN);
     const currentSize = new Float64Array(kept ? count : 0);
     const byRank = kept && previousKept;
@@ -151,7 +160,7 @@ export function solveQuadraticProgram(qp: QuadraticProgram): number[] | null {
     for (let more = true; more; more = nextSubset(active, k, m)) {
       let rank = 0;
       if (kept) for (let a = 0; a < k; a++) rank += choose[active[a]!]![a + 1]!;
-      if (k >= 2) {
+      if (skipping && k >= 2) {
         // Skipped when a set of one member fewer already has its minimum above the upper bound.
         let bound = NaN;
         let boundSize = 0;
