@@ -109,6 +109,71 @@ describe('trivar report', () => {
     expect(readFileSync(join(dir, 'b.html'), 'utf8')).not.toContain('<section id="harmonics">');
   });
 
+  it('an installation with harmonic data: the overview and a section per board, figures as trivar harmonics gives them', () => {
+    const dir = scratch();
+    const r = runTrivar(['report', 'examples/harrow-yard-studios.yaml', '--format', 'md', '-o', join(dir, 'harrow.md')]);
+    expect(r.stderr).toBe('');
+    expect(r.code).toBe(0);
+    expect(readdirSync(dir)).toContain('harrow-board-workshop-impedance-scan.svg');
+    const md = readFileSync(join(dir, 'harrow.md'), 'utf8');
+    const study = JSON.parse(runTrivar(['harmonics', 'examples/harrow-yard-studios.yaml', '--json']).stdout) as {
+      boards: { board: string; lines: { current: { rms: number } }[]; neutral: { current: { rms: number } }; triplenNeutralA: number }[];
+      scans: { board: string; scan: { combinations: unknown[] } }[];
+    };
+    const overview = md.slice(md.indexOf('## Harmonics and resonance'), md.indexOf('## Harmonics — '));
+    for (const b of study.boards) {
+      expect(md).toMatch(new RegExp(`^## Harmonics — ${b.board}$`, 'm'));
+      const largest = Math.max(...b.lines.map((l) => l.current.rms));
+      // The overview row: board, busbar V THD, 519 verdict, largest feeder current, its THD, neutral A, triplen A.
+      const row = overview.split('\n').find((l) => l.startsWith(`| ${b.board} |`))!;
+      expect(row).toContain(`| ${largest.toFixed(1)} `);
+      expect(row).toContain(`| ${b.neutral.current.rms.toFixed(1)} | ${b.triplenNeutralA.toFixed(1)} |`);
+    }
+    // The bank's scan on its board's section: one row per bank state.
+    const workshop = md.slice(md.indexOf('## Harmonics — Workshop'), md.indexOf('## Harmonics — Studios ground'));
+    const scanRows = workshop.slice(workshop.indexOf('**Resonance with the supply seen from Workshop')).split('\n\n')[1]!.split('\n').slice(2);
+    expect(scanRows).toHaveLength(study.scans.find((s) => s.board === 'Workshop')!.scan.combinations.length);
+    expect(workshop).toMatch(/- \*\*Duty verdict:\*\* within limits in every state/);
+    // Its cautions close the report.
+    expect(md.slice(md.indexOf('## Safety cautions'))).toMatch(/Caution:/);
+    const html = join(dir, 'b.html');
+    expect(runTrivar(['report', 'examples/harrow-yard-studios.yaml', '--no-harmonics', '-o', html]).code).toBe(0);
+    expect(readFileSync(html, 'utf8')).not.toContain('-harmonics">');
+  });
+
+  it('a collapsed board or installation: the report is written and says so, and the exit status is trivar solve’s (4)', () => {
+    const dir = scratch();
+    const SUPPLY = 'supply: { system: three-phase-4wire, voltage: { lineToLine: 400 }, frequencyHz: 50';
+    const board = join(dir, 'board.yaml');
+    writeFileSync(board, `${SUPPLY}, transformer: { kVA: 100, impedancePercent: 4, xOverR: 3 } }\nloads: [{ name: plant, connection: ABC-delta, kW: 5000, pf: 0.9 }]\n`);
+    const installation = join(dir, 'installation.yaml');
+    writeFileSync(
+      installation,
+      `${SUPPLY} }\nboards:\n  - { name: Main, loads: [{ name: lights, connection: A-N, kW: 1 }] }\n  - { name: Far shed, fedFrom: Main, feeder: { lengthM: 500, line: { mm2: 2.5 }, neutral: { mm2: 2.5 } }, loads: [{ name: plant, connection: ABC-delta, kW: 200, pf: 0.9 }] }\n`,
+    );
+    for (const [file, where] of [[board, ''], [installation, 'Far shed: ']] as const) {
+      const solve = runTrivar(['solve', file]);
+      const out = join(dir, `${where ? 'installation' : 'board'}.html`);
+      const r = runTrivar(['report', file, '-o', out]);
+      expect(solve.code).toBe(4);
+      expect(r.code).toBe(solve.code);
+      // The same message as trivar solve's, naming the board in an installation.
+      expect(r.stderr).toBe(solve.stderr);
+      expect(r.stderr).toMatch(new RegExp(`^error: no viable operating point: the supply cannot carry these loads: ${where}the board voltage has collapsed`));
+      expect(readFileSync(out, 'utf8')).toMatch(/Supply collapse: the supply cannot carry these loads/);
+      // To standard output and as Markdown alike.
+      const stdout = runTrivar(['report', file]);
+      expect(stdout.code).toBe(4);
+      expect(stdout.stdout).toMatch(/^<!DOCTYPE html>[^]*Supply collapse[^]*<\/html>\n?$/);
+      const md = runTrivar(['report', file, '--format', 'md', '-o', join(dir, 'r.md')]);
+      expect(md.code).toBe(4);
+      expect(readFileSync(join(dir, 'r.md'), 'utf8')).toMatch(/Supply collapse/);
+    }
+    // A board that stands: exit 0, nothing on standard error.
+    const fine = runTrivar(['report', 'examples/maple-court-riser.yaml', '-o', join(dir, 'fine.html')]);
+    expect([fine.code, fine.stderr]).toEqual([0, '']);
+  });
+
   it('--profile-data adds the load-over-time section with its charts, figures as trivar profile gives them', () => {
     const dir = scratch();
     const data = join(dir, 'quay.csv');

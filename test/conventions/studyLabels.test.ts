@@ -63,6 +63,38 @@ describe('correct follows the file naming', () => {
       });
 });
 
+/** Every equipment name in a result: the `name` of each object that also has `branches` (equipment groups, the loads they add). */
+function equipmentNamesOf(x: unknown): string[] {
+  if (Array.isArray(x)) return x.flatMap(equipmentNamesOf);
+  if (!x || typeof x !== 'object') return [];
+  const here = 'name' in x && 'branches' in x && typeof x.name === 'string' && /bank|compensator/.test(x.name) ? [x.name] : [];
+  return [...here, ...Object.values(x).flatMap(equipmentNamesOf)];
+}
+
+describe('equipment names in the JSON follow the file naming', () => {
+  // Invented split-phase board: a bank on it is one group per branch, each named with its branch.
+  const HOUSE = `supply: { system: split-phase, voltage: { lineToNeutral: 120 }, frequencyHz: 60, transformer: { kVA: 50, impedancePercent: 2, xOverR: 2 } }
+loads:
+  - { name: well pump, connection: A-B, kW: 5, pf: 0.7 }
+  - { name: shop motor, connection: A-N, kW: 3, pf: 0.75 }
+  - { name: freezer, connection: B-N, kW: 1, pf: 0.7 }
+`;
+  for (const [arrangement, lettered, numbered] of [
+    ['star-bank', ['star bank A-N', 'star bank B-N'], ['star bank L1-N', 'star bank L2-N']],
+    ['delta-bank', ['delta bank A-B'], ['delta bank L1-L2']],
+  ] as const)
+    it(`${arrangement} on a split-phase board: ${numbered.join(', ')} in an L-named file, the same figures`, () => {
+      const named = correctBoard(boardOf(inNumberedNames(HOUSE)), { arrangement });
+      const plain = correctBoard(boardOf(HOUSE), { arrangement });
+      expect(named.verification.before.conventions.phaseNames).toBe('L1/L2/L3');
+      expect(new Set(equipmentNamesOf(plain))).toEqual(new Set(lettered));
+      expect(new Set(equipmentNamesOf(named))).toEqual(new Set(numbered));
+      // Data keys stay A/B/C in both: the branch of each group, its connection.
+      expect(named.verification.equipment.map((g) => g.branches.map((b) => b.branch))).toEqual(plain.verification.equipment.map((g) => g.branches.map((b) => b.branch)));
+      expect(figureLeaves(named)).toEqual(figureLeaves(plain));
+    });
+});
+
 describe('check follows the file naming', () => {
   const board = example('riverside-cold-store.yaml');
   const figures = readFileSync(new URL('../../examples/hand-figures/riverside-cold-store.yaml', import.meta.url), 'utf8');

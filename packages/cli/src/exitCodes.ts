@@ -1,5 +1,5 @@
 /** Exit codes of the trivar CLI, decided in one place. */
-import { InputError, NumericalError } from '@trivar/core';
+import { collapseError, InputError, NumericalError, type BoardResult, type InstallationResult } from '@trivar/core';
 import { escapeControlCharacters } from './format/terminalText.js';
 
 export const EXIT = {
@@ -30,6 +30,20 @@ export class UsageError extends Error {
 
 /** A solved board whose operating point is a collapse: the core's NumericalError (exit 4, as for a board with no solution). */
 export { collapseError } from '@trivar/core';
+
+/**
+ * The collapse of a solved board, or of any board of a solved installation (each finding named with its
+ * board): the error a command raises after writing its output, as `trivar solve` does; null when none collapsed.
+ */
+export function collapseOf(result: BoardResult | InstallationResult): NumericalError | null {
+  const findings =
+    'boards' in result
+      ? result.boards.flatMap((b) => (b.result.operatingPoint.collapsed ? b.result.operatingPoint.findings.map((f) => `${b.name}: ${f}`) : []))
+      : result.operatingPoint.collapsed
+        ? result.operatingPoint.findings
+        : [];
+  return findings.length ? collapseError({ operatingPoint: { findings } }) : null;
+}
 
 export function exitCodeFor(error: unknown): number {
   if (error instanceof InputError) return EXIT.input;

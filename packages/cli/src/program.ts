@@ -134,7 +134,8 @@ Examples:
 const REPORT_EXAMPLES = `
 The report includes the correction study when the board file has a "correction:" section, and the harmonic
 study when it has a "harmonics:" section or loads with a spectrum. On an installation file it describes the
-supply, the feeders and every board, with a one-line drawing.
+supply, the feeders and every board, with a one-line drawing, and (with harmonic data) the harmonic study of
+every board and bank.
 
 Examples:
   trivar report examples/riverside-cold-store.yaml -o cold-store.html

@@ -45,7 +45,7 @@ export { isInstallationInput } from './board/installationInput.js';
 export { normaliseInstallation } from './board/normaliseInstallation.js';
 export type { FeederSpec, PerPhaseConductorSpec, WindingSpec } from './board/boardSchema.js';
 export type { ConductorMaterial, ConductorSize, ConductorResistance } from './board/cableLibrary.js';
-export { conductorResistance, DEFAULT_CABLE_REACTANCE_OHM_PER_KM, DEFAULT_CONDUCTOR_TEMPERATURE_C } from './board/cableLibrary.js';
+export { conductorReactance, conductorResistance, DEFAULT_CABLE_REACTANCE_OHM_PER_KM, DEFAULT_CONDUCTOR_TEMPERATURE_C } from './board/cableLibrary.js';
 export { installationOf, boardOfInstallation } from './network/installationModel.js';
 export type { InstallationSolution, CompiledInstallation } from './network/solveNetwork.js';
 export { compileInstallation, solveCompiledInstallation, solveInstallationNetwork } from './network/solveNetwork.js';
@@ -181,14 +181,16 @@ export { solveInstallationAtOrder, installationAtOrder } from './harmonics/insta
 export { createInstallationScanEvaluator } from './harmonics/scanEvaluator.js';
 export type { FixedInstallationInput } from './network/solveFixedInstallation.js';
 export { solveFixedInstallation } from './network/solveFixedInstallation.js';
-export type { ScanEvaluator } from './harmonics/scanEvaluator.js';
-export { scanResonance, createScanEvaluator, scanGrid, stepCombinations } from './harmonics/scanResonance.js';
+export type { ScanEvaluator, ScanBank, BankState } from './harmonics/scanEvaluator.js';
+export type { JointScanOptions, NetworkState } from './harmonics/scanJointResonance.js';
+export { scanJointResonance, scanNetworkStates, controllerLevels } from './harmonics/scanJointResonance.js';
+export { scanResonance, createScanEvaluator, scanGrid, stepCombinations, roundForPlot, shortCircuitVA } from './harmonics/scanResonance.js';
 export { DUTY_LIMITS, dutyFigures } from './harmonics/capacitorDuty.js';
-export { dutyConditions, withCapacitanceFactor, withLoadsOff, conditionWords } from './harmonics/dutyConditions.js';
+export { dutyConditions, withCapacitanceFactor, withLoadsOff, withOtherBanksOff, conditionWords } from './harmonics/dutyConditions.js';
 export { tuningOrder, capacitorVoltage, detunedOutputKvar, detunedSusceptance, DETUNING_FACTORS_PERCENT } from './harmonics/detuning.js';
 export { ieee519OrderLimit, ieee519Row } from './harmonics/ieee519.js';
 export { HARMONICS_DEFAULTS } from './harmonics/harmonicsDefaults.js';
-export { HARMONICS_CAUTIONS } from './harmonics/harmonicsWording.js';
+export { HARMONICS_CAUTIONS, jointCoverageWords, nearestWords } from './harmonics/harmonicsWording.js';
 export type { FixedNetworkInput } from './network/solveFixedNetwork.js';
 export { solveFixedNetwork } from './network/solveFixedNetwork.js';
 export type { NodalMatrix } from './network/terminalImpedance.js';
@@ -234,6 +236,7 @@ export { renderReportMarkdown } from './render/report/renderReportMarkdown.js';
 export type { ProfileChart } from './render/report/profileSection.js';
 export { profileSection } from './render/report/profileSection.js';
 export { harmonicsSection } from './render/report/harmonicsSection.js';
+export { installationHarmonicsSections } from './render/report/installationHarmonicsSections.js';
 
 // Checking hand calculations (trivar check)
 export type { HandFiguresSpec, HandCapacitorSpec, HandBranch } from './handCheck/handFiguresSpec.js';

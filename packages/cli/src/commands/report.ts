@@ -22,7 +22,10 @@ import {
   solveBoardModel,
   solveInstallationModel,
   studyHarmonics,
+  studyInstallationHarmonics,
   type Board,
+  type BoardResult,
+  type InstallationResult,
   type Installation,
   type InstallationSpec,
   type BoardSpec,
@@ -32,7 +35,7 @@ import {
 } from '@trivar/core';
 import type { CliIo } from '../io.js';
 import { HAND_FIGURES_ON_INSTALLATION } from '../handFiguresWording.js';
-import { UsageError } from '../exitCodes.js';
+import { collapseOf, UsageError } from '../exitCodes.js';
 import { assertNotInput, writeOutputFile } from '../outputFiles.js';
 import { computeProfileStudy } from './profile.js';
 import { writeProfileCharts } from '../format/profileChartFiles.js';
@@ -81,7 +84,13 @@ function handCheckOf(board: Board, figures: unknown, figuresFile: string) {
   }
 }
 
-async function boardDocument(raw: unknown, figures: unknown, options: ReportCommandOptions, io: CliIo): Promise<ReportDocument> {
+/** A report and the solve it reports (its collapse is the exit status once the report is written). */
+interface Reported {
+  readonly doc: ReportDocument;
+  readonly result: BoardResult | InstallationResult;
+}
+
+async function boardDocument(raw: unknown, figures: unknown, options: ReportCommandOptions, io: CliIo): Promise<Reported> {
   const spec = parseBoard(raw);
   const board = normaliseBoard(spec);
   const result = solveBoardModel(board);
@@ -90,7 +99,7 @@ async function boardDocument(raw: unknown, figures: unknown, options: ReportComm
   const harmonics = options.harmonics !== false && wantsHarmonics ? studyHarmonics(raw) : null;
   const studySections = options.profileData ? [await profileReportSection(spec, options, io, result.conventions.phaseNames)] : [];
   const handCheck = figures === null ? null : handCheckOf(board, figures, options.handFigures!);
-  return buildBoardReport({ spec, result, correction, harmonics, studySections, handCheck });
+  return { doc: buildBoardReport({ spec, result, correction, harmonics, studySections, handCheck }), result };
 }
 
 /** The installation file's correction study on the board it names (default the main board). */
@@ -100,7 +109,7 @@ function installationCorrectionOf(installation: Installation, section: NonNullab
   return { board: c.board, report: c.report, effect: c.effect };
 }
 
-function installationDocument(raw: unknown, figures: unknown, options: ReportCommandOptions): ReportDocument {
+function installationDocument(raw: unknown, figures: unknown, options: ReportCommandOptions): Reported {
   if (options.profileData) throw new UsageError("--profile-data applies to a single board file: interval data describe one board; give that board's own file");
   // The hand method works on one board and its own loads; a board inside an installation also carries the
   // boards beyond it and the drops before it, which the hand check's effects do not separate.
@@ -109,7 +118,9 @@ function installationDocument(raw: unknown, figures: unknown, options: ReportCom
   const { installation } = normaliseInstallation(spec);
   const result = solveInstallationModel(installation);
   const correction = options.correction !== false && spec.correction?.arrangement ? installationCorrectionOf(installation, spec.correction) : null;
-  return buildInstallationReport({ spec, result, correction });
+  const wantsHarmonics = spec.harmonics !== undefined || spec.boards.some((b) => b.loads.some((l) => l.spectrum !== undefined));
+  const harmonics = options.harmonics !== false && wantsHarmonics ? studyInstallationHarmonics(raw) : null;
+  return { doc: buildInstallationReport({ spec, result, correction, harmonics }), result };
 }
 
 export async function runReport(file: string, options: ReportCommandOptions, io: CliIo, footer: string): Promise<void> {
@@ -120,7 +131,14 @@ export async function runReport(file: string, options: ReportCommandOptions, io:
   if (out) assertNotInput([out], inputs);
   const raw = readBoardText(await io.readSource(file));
   const figures = options.handFigures ? readBoardText(await readFigures(options.handFigures, io)) : null;
-  const doc = isInstallationInput(raw) ? installationDocument(raw, figures, options) : await boardDocument(raw, figures, options, io);
+  const { doc, result } = isInstallationInput(raw) ? installationDocument(raw, figures, options) : await boardDocument(raw, figures, options, io);
+  writeReport(doc, format, out, inputs, footer, io);
+  // As `trivar solve`: the report says so first and is written, then a collapse anywhere is the exit status.
+  const collapse = collapseOf(result);
+  if (collapse) throw collapse;
+}
+
+function writeReport(doc: ReportDocument, format: 'html' | 'md', out: string | undefined, inputs: readonly string[], footer: string, io: CliIo): void {
   if (format === 'html') {
     const html = renderReportHtml(doc, { footer });
     if (out) writeOutputFile(out, html);

@@ -2,7 +2,7 @@
 import { isInstallationInput, normaliseBoard, readPlainBoardText, readWellFormedBoard, solveBoardModel, type BoardResult, type InstallationResult } from '@trivar/core';
 import type { CliIo } from '../io.js';
 import { writeResult } from '../writeResult.js';
-import { collapseError } from '../exitCodes.js';
+import { collapseOf } from '../exitCodes.js';
 import { renderSolveReport } from '../format/solveReport.js';
 import { renderInstallationReport } from '../format/installationReport.js';
 import { boardOptionOnBoardFile, unknownBoardError } from './chooseBoard.js';
@@ -27,7 +27,8 @@ export async function runSolve(file: string, options: SolveCommandOptions, io: C
     const spec = readWellFormedBoard(input) ?? (await import('./schemaChecks.js')).parseBoard(input);
     const result = solveBoardModel(normaliseBoard(spec), solveOptions);
     writeResult(io, result, options.json, renderSolveReport);
-    if (result.operatingPoint.collapsed) throw collapseError(result);
+    const collapse = collapseOf(result);
+    if (collapse) throw collapse;
     return result;
   }
   const { solveInstallation } = await import('./schemaChecks.js');
@@ -38,7 +39,7 @@ export async function runSolve(file: string, options: SolveCommandOptions, io: C
   const detailed = options.allBoards ? names : names.filter((n) => options.board?.includes(n));
   writeResult(io, result, options.json, (r) => renderInstallationReport(r, { detailed }));
   // As for a board file: the figures are printed, then a collapse anywhere is the exit status.
-  const findings = result.boards.flatMap((b) => (b.result.operatingPoint.collapsed ? b.result.operatingPoint.findings.map((f) => `${b.name}: ${f}`) : []));
-  if (findings.length) throw collapseError({ operatingPoint: { findings } });
+  const collapse = collapseOf(result);
+  if (collapse) throw collapse;
   return result;
 }

@@ -17,7 +17,7 @@ const senseWord = (s: PowerFactorSense): string => (s === 'unity' ? '' : s === '
 const orDash = (x: number | null, d: number): string => (x === null ? '—' : fixed(x, d));
 
 /** @param label the board file's phase labels (`labellerOf(conventionsOf(board).phaseNames)`) */
-export function renderHandCheckReport(r: HandCheckResult, label: PhaseLabeller = labellerOf('A/B/C')): string {
+export function renderHandCheckReport(r: HandCheckResult, label: PhaseLabeller = labellerOf(r.phaseNames)): string {
   const out: string[] = [];
   out.push(`Hand figures checked on ${r.board.name}`);
   out.push(`${SYSTEM_WORDS[r.board.system] ?? r.board.system} · ${fixed(r.board.nominalLineToNeutralV, 1)} V line-to-neutral · ${r.board.frequencyHz} Hz`);

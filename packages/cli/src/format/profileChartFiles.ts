@@ -31,7 +31,7 @@ function dailyPf(f: IntervalFigures, label: (i: number) => string): Float64Array
 export const CHART_FILES = ['currents.svg', 'power-factor.svg', 'load-duration.svg'] as const;
 
 /** @param label the board file's phase labels: the series are named that way */
-export function writeProfileCharts(study: ProfileStudy, write: (name: string, text: string) => void, label: PhaseLabeller = labellerOf('A/B/C')): void {
+export function writeProfileCharts(study: ProfileStudy, write: (name: string, text: string) => void, label: PhaseLabeller = labellerOf(study.result.phaseNames)): void {
   const f = study.before;
   const phases = f.lineA.length;
   const names = (['A', 'B', 'C'] as const).slice(0, phases).map(label);

@@ -1,9 +1,6 @@
 /** CSV files of `trivar profile`: the summary (one figure a row) and the per-interval results. */
 import { labellerOf, type PhaseLabeller, type ProfileResult, type ProfileStudy, type ProfileSummary } from '@trivar/core';
 
-/** Labels of a board file named A/B/C: what a caller without the board's naming gets. */
-const LETTERED = labellerOf('A/B/C');
-
 const cell = (x: string | number | null) => {
   if (x === null) return '';
   if (typeof x === 'number') return Number.isInteger(x) ? String(x) : x.toPrecision(8).replace(/\.?0+$/, '');
@@ -12,7 +9,7 @@ const cell = (x: string | number | null) => {
 
 /** Rows: figure, where, before, after (empty without a bank), unit. */
 /** @param label the board file's phase labels: the `where` column names lines and phases that way */
-export function summaryCsv(r: ProfileResult, label: PhaseLabeller = LETTERED): string {
+export function summaryCsv(r: ProfileResult, label: PhaseLabeller = labellerOf(r.phaseNames)): string {
   const rows: (string | number | null)[][] = [['figure', 'where', 'before', 'after', 'unit']];
   const a = r.bank?.after ?? null;
   const add = (figure: string, where: string, pick: (s: ProfileSummary) => string | number | null, unit: string) =>
@@ -52,7 +49,7 @@ export function summaryCsv(r: ProfileResult, label: PhaseLabeller = LETTERED): s
 
 /** One row per interval: local time, currents, phase voltages, board P, Q, PF (and the same with the bank). */
 /** @param label the board file's phase labels: the column headers name lines and phases that way */
-export function intervalCsv(study: ProfileStudy, label: PhaseLabeller = LETTERED): string {
+export function intervalCsv(study: ProfileStudy, label: PhaseLabeller = labellerOf(study.result.phaseNames)): string {
   const f = study.before;
   const phases = f.lineA.length;
   const names = (['A', 'B', 'C'] as const).slice(0, phases).map(label);

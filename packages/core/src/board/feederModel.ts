@@ -5,7 +5,8 @@
 import { complex, scale, type ComplexValue } from '../complex.js';
 import type { ConductorSpec, FeederSpec, PerPhaseConductorSpec } from './boardSchema.js';
 import type { PhaseId } from './systemTopology.js';
-import { conductorResistance, DEFAULT_CABLE_REACTANCE_OHM_PER_KM, type ConductorMaterial, type ConductorSize } from './cableLibrary.js';
+import { labelIn, type PhaseNaming } from './conventions/phaseNames.js';
+import { conductorReactance, conductorResistance, type ConductorMaterial, type ConductorSize } from './cableLibrary.js';
 
 const METRES_PER_FOOT = 0.3048;
 
@@ -29,8 +30,8 @@ export function lengthOf(c: ConductorSpec, feeder: FeederSpec | undefined): numb
   return null;
 }
 
-/** Impedance of one conductor (of its parallel set), ohm. */
-export function conductorImpedance(c: ConductorSpec | undefined, feeder: FeederSpec | undefined): ComplexValue {
+/** Impedance of one conductor (of its parallel set) at the supply frequency, ohm. */
+export function conductorImpedance(c: ConductorSpec | undefined, feeder: FeederSpec | undefined, frequencyHz: number): ComplexValue {
   if (!c) return complex(0, 0);
   const parallel = c.parallel ?? 1;
   let z = complex(c.r ?? 0, c.x ?? 0);
@@ -38,7 +39,8 @@ export function conductorImpedance(c: ConductorSpec | undefined, feeder: FeederS
   const size = sizeOf(c);
   if (size && length !== null) {
     const r = conductorResistance(size, materialOf(c), c.temperatureC);
-    z = complex(((r?.ohmPerKm ?? Number.NaN) * length) / 1000, ((c.xOhmPerKm ?? DEFAULT_CABLE_REACTANCE_OHM_PER_KM) * length) / 1000);
+    const x = c.xOhmPerKm ?? conductorReactance(size, frequencyHz)?.ohmPerKm ?? Number.NaN;
+    z = complex(((r?.ohmPerKm ?? Number.NaN) * length) / 1000, (x * length) / 1000);
   } else if (c.rOhmPerKm !== undefined && length !== null) {
     z = complex((c.rOhmPerKm * length) / 1000, ((c.xOhmPerKm ?? 0) * length) / 1000);
   }
@@ -67,18 +69,19 @@ export interface FeederModel {
   readonly description: string | null;
 }
 
-export function feederModel(feeder: FeederSpec | undefined, phases: readonly PhaseId[]): FeederModel {
+/** @param naming how the file names the phases: a description per phase uses it (`L1: …`) @defaultValue 'A/B/C' */
+export function feederModel(feeder: FeederSpec | undefined, phases: readonly PhaseId[], frequencyHz: number, naming: PhaseNaming = 'A/B/C'): FeederModel {
   const line = feeder?.line;
   const perPhase = line && isPerPhaseLine(line) ? line : null;
   const conductorOf = (p: PhaseId): ConductorSpec | undefined => (perPhase ? perPhase[p] : (line as ConductorSpec | undefined));
   const ratings = phases.map((p) => conductorOf(p)?.ratingA).filter((a): a is number => a !== undefined);
   const lineWords = [...new Set(phases.map((p) => describeConductor(conductorOf(p), feeder)))];
   const neutralWords = describeConductor(feeder?.neutral, feeder);
-  const lineText = lineWords.length === 1 ? lineWords[0] : lineWords.every((w) => w !== null) ? phases.map((p) => `${p}: ${describeConductor(conductorOf(p), feeder)}`).join('; ') : null;
+  const lineText = lineWords.length === 1 ? lineWords[0] : lineWords.every((w) => w !== null) ? phases.map((p) => `${labelIn(naming, p)}: ${describeConductor(conductorOf(p), feeder)}`).join('; ') : null;
   const description = lineText ? (neutralWords && neutralWords !== lineText ? `${lineText}; neutral ${neutralWords}` : lineText) : null;
   return {
-    lineImpedances: phases.map((p) => conductorImpedance(conductorOf(p), feeder)),
-    neutralImpedance: conductorImpedance(feeder?.neutral, feeder),
+    lineImpedances: phases.map((p) => conductorImpedance(conductorOf(p), feeder, frequencyHz)),
+    neutralImpedance: conductorImpedance(feeder?.neutral, feeder, frequencyHz),
     lineRatingA: ratings.length ? Math.min(...ratings) : null,
     neutralRatingA: feeder?.neutral?.ratingA ?? null,
     description,

@@ -124,6 +124,7 @@ function loadBranches(load: LoadBaseSpec, index: number, spec: BoardBaseSpec, ln
       ...(load.circuit !== undefined ? { circuit: load.circuit } : {}),
       ...(load.breakerA !== undefined ? { breakerA: load.breakerA } : {}),
       ...(load.poles !== undefined ? { poles: load.poles } : {}),
+      ...(load.continuous !== undefined ? { continuous: load.continuous } : {}),
     };
     return {
       name: load.name,
@@ -165,7 +166,8 @@ export function normaliseBoard(spec: BoardBaseSpec): Board {
     return given ? polar(given.V, degToRad(given.angleDeg)) : polar(ln, degToRad(angles[k]!));
   });
   const unequal = unequalSource(spec, phases, ln, ll);
-  const feeder = feederModel(spec.feeder, phases);
+  const conventions = resolveConventions(spec, { ln, ll });
+  const feeder = feederModel(spec.feeder, phases, spec.supply.frequencyHz, conventions.phaseNames);
   const first = feeder.lineImpedances[0]!;
   const unequalLines = feeder.lineImpedances.some((z) => z.re !== first.re || z.im !== first.im);
   return {
@@ -187,7 +189,7 @@ export function normaliseBoard(spec: BoardBaseSpec): Board {
     transformerKVA: spec.supply.impedance ? null : (spec.supply.transformer?.kVA ?? null),
     loads: spec.loads.map((load, i) => loadBranches(load, i, spec, ln, ll)),
     studies: { openNeutral: spec.studies?.openNeutral ?? false },
-    conventions: resolveConventions(spec, { ln, ll }),
+    conventions,
     ...unequal,
     ...(unequalLines ? { lineImpedances: feeder.lineImpedances } : {}),
   };

@@ -5,6 +5,7 @@ import { feederModel } from './feederModel.js';
 import type { InstallationBaseSpec } from './installationSchema.js';
 import { boardSpecOf } from './installationRules.js';
 import type { VoltageLimits } from './conventions/voltageLimits.js';
+import { conventionsOf } from './conventions/boardConventions.js';
 
 const sameLimits = (a: VoltageLimits, b: VoltageLimits | undefined) =>
   b !== undefined && a.preset === b.preset && a.underPercent === b.underPercent && a.overPercent === b.overPercent;
@@ -20,10 +21,12 @@ export function normaliseInstallation(spec: InstallationBaseSpec): { installatio
   spec.boards.forEach((_, i) => boardNumber.push(i === mainIndex ? 0 : next++));
   const numberOf = new Map(spec.boards.map((b, i) => [b.name, boardNumber[i]!]));
   const main = normaliseBoard(boardSpecOf(spec, mainIndex));
+  // Feeder descriptions name the phases as the file does.
+  const naming = conventionsOf(main).phaseNames;
   const subBoards: SubBoard[] = new Array(spec.boards.length - 1);
   spec.boards.forEach((b, i) => {
     if (i === mainIndex) return;
-    const feeder = feederModel(b.feeder, main.phases);
+    const feeder = feederModel(b.feeder, main.phases, main.frequencyHz, naming);
     const board = normaliseBoard(boardSpecOf(spec, i));
     const limits = board.conventions?.voltageLimits;
     subBoards[boardNumber[i]! - 1] = {
@@ -35,6 +38,6 @@ export function normaliseInstallation(spec: InstallationBaseSpec): { installatio
       ...(limits && !sameLimits(limits, main.conventions?.voltageLimits) ? { voltageLimits: limits } : {}),
     };
   });
-  const serviceFeederDescription = feederModel(spec.boards[mainIndex]!.feeder, main.phases).description;
+  const serviceFeederDescription = feederModel(spec.boards[mainIndex]!.feeder, main.phases, main.frequencyHz, naming).description;
   return { installation: { name: spec.name ?? main.name, main, subBoards, serviceFeederDescription }, boardNumber };
 }

@@ -6,6 +6,7 @@
  */
 import type { Board, BoardLoad, PhaseId, Terminal } from '../board/boardModel.js';
 import type { ConnectionSpec } from '../board/boardSchema.js';
+import { labelIn, type PhaseNaming } from '../board/conventions/phaseNames.js';
 
 /** Where a branch ends: a phase, the neutral bar, or the bank's own floating star point. */
 export type EquipmentTerminal = PhaseId | 'N' | 'star';
@@ -57,18 +58,22 @@ export function deltaSlots(board: Board): BranchSlot[] {
 export const susceptanceFromKvar = (kvar: number, v: number): number => (kvar * 1000) / (v * v);
 export const kvarFromSusceptance = (susceptanceS: number, v: number): number => (susceptanceS * v * v) / 1000;
 
+export interface EquipmentGroupOptions {
+  /** The part left connected at light load, S, per slot. @defaultValue the susceptances */
+  readonly fixedSusceptances?: readonly number[];
+  /** How the board's file names its phases: a group of one branch is named with it (`star bank L1-N`). @defaultValue 'A/B/C' */
+  readonly naming?: PhaseNaming;
+}
+
 /**
  * Groups slots and their susceptances the way they would be built: three
  * star slots → one `ABC-star` group, three delta slots → one `ABC-delta` group
  * (a compensator has both), anything else (split-phase, single-phase) → one
- * group per branch. Branch order is kept.
+ * group per branch, named with its branch as the file names it. Branch order is kept.
  */
-export function equipmentGroups(
-  name: string,
-  slots: readonly BranchSlot[],
-  susceptances: readonly number[],
-  fixedSusceptances: readonly number[] = susceptances,
-): EquipmentGroup[] {
+export function equipmentGroups(name: string, slots: readonly BranchSlot[], susceptances: readonly number[], options: EquipmentGroupOptions = {}): EquipmentGroup[] {
+  const fixedSusceptances = options.fixedSusceptances ?? susceptances;
+  const naming = options.naming ?? 'A/B/C';
   // Below a microvar an element is rounding left by the iterations, not equipment:
   // drop it, so an all-but-empty floating star does not leave a node hanging on nothing.
   const clean = (b: number, v: number) => (Math.abs(b) * v * v < 1e-6 ? 0 : b);
@@ -82,7 +87,8 @@ export function equipmentGroups(
   const groupOf = (part: EquipmentBranch[], connection: ConnectionSpec, suffix: string): EquipmentGroup[] => {
     if (part.length === 0) return [];
     if (part.length === 3) return [{ name: both ? `${name} ${suffix}` : name, connection, branches: part }];
-    return part.map((b) => ({ name: `${name} ${b.branch}`, connection: `${b.from}-${b.to}` as ConnectionSpec, branches: [b] }));
+    // The name is text for people (JSON and reports alike); `branch` and `connection` stay A/B/C data.
+    return part.map((b) => ({ name: `${name} ${labelIn(naming, b.branch)}`, connection: `${b.from}-${b.to}` as ConnectionSpec, branches: [b] }));
   };
   const groups = [...groupOf(delta, 'ABC-delta', 'delta part'), ...groupOf(star, 'ABC-star', 'star part')];
   const firstIndex = (g: EquipmentGroup) => branches.indexOf(g.branches[0]!);

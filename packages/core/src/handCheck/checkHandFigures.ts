@@ -195,6 +195,7 @@ export function checkHandFigures(board: Board, figures: unknown): HandCheckResul
   const cautions = correctionCautions(regionWords(conventionsOf(board).region, board.system).groundWord);
   return {
     board: { name: board.name, system: board.system, nominalLineToNeutralV: board.nominalLineToNeutralV, frequencyHz: board.frequencyHz },
+    phaseNames: conventionsOf(board).phaseNames,
     targetPf,
     capacitors,
     textbook: hand.phases,

@@ -6,6 +6,7 @@
 import type { PhaseId } from '../board/boardModel.js';
 import type { PowerFactorSense } from '../analysis/boardResult.js';
 import type { HandBranch } from './handFiguresSpec.js';
+import type { PhaseNaming } from '../board/conventions/phaseNames.js';
 
 /** One capacitor as the user gave it and as the board really runs it. */
 export interface HandCapacitor {
@@ -81,6 +82,8 @@ export interface EffectContribution {
 
 export interface HandCheckResult {
   readonly board: { readonly name: string; readonly system: string; readonly nominalLineToNeutralV: number; readonly frequencyHz: number };
+  /** How the board names its phases ("A/B/C" or "L1/L2/L3"): reports label with it; data keys stay A/B/C. */
+  readonly phaseNames: PhaseNaming;
   readonly targetPf: number | null;
   readonly capacitors: readonly HandCapacitor[];
   readonly textbook: readonly TextbookPhase[];

@@ -19,7 +19,8 @@ import { NumericalError } from '../errors.js';
 import type { ComplexValue } from '../complex.js';
 import { leastDeterminedUnknown, solveComplexSystem } from '../_internal/complexLu.js';
 import { analysePattern, factorInPlace, forwardInOrder, substituteInOrder, type SparsePattern } from '../_internal/sparseComplexLu.js';
-import { factorRealInPlace, solveRealFactored } from '../_internal/denseRealLu.js';
+import { factorRealInPlace, invertReal3InPlace, multiplyReal3, solveRealFactored } from '../_internal/denseRealLu.js';
+import { LoadPortReduction } from './loadPortReduction.js';
 import { REFERENCE, type Circuit } from './circuit.js';
 import { resolveSolveOptions, type ResolvedSolveOptions, type SolveOptions } from './solveOptions.js';
 
@@ -41,6 +42,13 @@ const MAX_PAIRS = 12;
 const CONTRACTION_LIMIT = 0.5;
 /** Linear solves the Newton path may take before handing the solve to the fixed-point iteration. */
 const MAX_NEWTON_SOLVES = 8;
+/**
+ * The Newton path solves through the load ports (loadPortReduction.ts) up to this many
+ * unknowns and ports: a board has a handful of each; the dense transfer tables grow as
+ * their product, and a large sparse network is cheaper to factorise than to reduce.
+ */
+const MAX_REDUCED_UNKNOWNS = 48;
+const MAX_PORTS = 16;
 
 const NODE_FREE = 1;
 const NODE_FIXED = 2;
@@ -102,6 +110,8 @@ export class CompiledNetwork {
   private readonly zipZ: Float64Array;
   private readonly zipI: Float64Array;
   private readonly zipP: Float64Array;
+  /** 1/vNominal² per branch (vNominal is fixed at compile time). */
+  private readonly inverseSquareNominal: Float64Array;
   private readonly allImpedance: boolean;
   // Newton on magnitudes (see solveByMagnitudes): one pair per node pair with a voltage-dependent branch.
   private readonly pairCount: number;
@@ -128,6 +138,10 @@ export class CompiledNetwork {
   private readonly columnRe: Float64Array;
   private readonly columnIm: Float64Array;
   private factored = false;
+  /** The network reduced to its load ports, where the Newton path solves through them (null: it assembles and factorises). */
+  private readonly reduction: LoadPortReduction | null;
+  /** Port of each branch in `reduction` (-1: inactive, or no end is an unknown); ports 0…pairCount−1 are the pairs. */
+  private readonly portOf: Int32Array;
   /** Set by admittancesAtMagnitudes: a voltage-dependent branch is held below the low-voltage threshold. */
   private held = false;
 
@@ -145,6 +159,7 @@ export class CompiledNetwork {
     this.zipZ = new Float64Array(m);
     this.zipI = new Float64Array(m);
     this.zipP = new Float64Array(m);
+    this.inverseSquareNominal = new Float64Array(m);
     this.bFrom = new Int32Array(m);
     this.bTo = new Int32Array(m);
     let allImpedance = true;
@@ -156,6 +171,7 @@ export class CompiledNetwork {
       this.zipZ[k] = b.zip.z;
       this.zipI[k] = b.zip.i;
       this.zipP[k] = b.zip.p;
+      this.inverseSquareNominal[k] = 1 / (b.vNominal * b.vNominal);
       this.bFrom[k] = b.from;
       this.bTo[k] = b.to;
       if (b.zip.z !== 1) allImpedance = false;
@@ -320,6 +336,54 @@ export class CompiledNetwork {
     this.pivots = new Int32Array(newton);
     this.columnRe = new Float64Array(newton * size);
     this.columnIm = new Float64Array(newton * size);
+
+    // Load ports: the pairs first (same order and orientation), then the node pairs of the other active branches.
+    this.portOf = new Int32Array(m).fill(-1);
+    const portFrom = [...pairFrom];
+    const portTo = [...pairTo];
+    const portKey = new Map(pairKey);
+    for (let k = 0; k < m; k++) {
+      if (!this.bActive[k]) continue;
+      if (this.pairOf[k]! >= 0) {
+        this.portOf[k] = this.pairOf[k]!;
+        continue;
+      }
+      const a = this.bFrom[k]!;
+      const b = this.bTo[k]!;
+      if (positionOf(a) < 0 && positionOf(b) < 0) continue;
+      const key = (Math.min(a, b) + 1) * (n + 1) + Math.max(a, b) + 1;
+      let port = portKey.get(key);
+      if (port === undefined) {
+        port = portFrom.push(a) - 1;
+        portTo.push(b);
+        portKey.set(key, port);
+      }
+      this.portOf[k] = port;
+    }
+    this.reduction = null;
+    if (newton > 0 && size <= MAX_REDUCED_UNKNOWNS && portFrom.length <= MAX_PORTS) {
+      const fixedRe = (v: number) => (v !== REFERENCE && this.kind[v] === NODE_FIXED ? this.voltageRe[v]! : 0);
+      const fixedIm = (v: number) => (v !== REFERENCE && this.kind[v] === NODE_FIXED ? this.voltageIm[v]! : 0);
+      this.reduction = LoadPortReduction.build(
+        p,
+        this.baseRe,
+        this.baseIm,
+        this.baseRhsRe,
+        this.baseRhsIm,
+        Int32Array.from(portFrom, positionOf),
+        Int32Array.from(portTo, positionOf),
+        Float64Array.from(portFrom, (a, i) => fixedRe(a) - fixedRe(portTo[i]!)),
+        Float64Array.from(portFrom, (a, i) => fixedIm(a) - fixedIm(portTo[i]!)),
+      );
+    }
+  }
+
+  /**
+   * True when the Newton path solves through the load ports (loadPortReduction.ts)
+   * rather than assembling and factorising the nodal matrix each time.
+   */
+  get solvesThroughPorts(): boolean {
+    return this.reduction !== null;
   }
 
   /** Number of unknowns the linear solves work on. */
@@ -404,11 +468,7 @@ export class CompiledNetwork {
       }
       substituteInOrder(p, re, im, this.xRe, this.xIm, 0);
     }
-    for (let k = 0; k < p.size; k++) {
-      const v = this.nodeAtPosition[k]!;
-      this.voltageRe[v] = this.xRe[k]!;
-      this.voltageIm[v] = this.xIm[k]!;
-    }
+    this.scatterVoltages();
   }
 
   private assemble(re: Float64Array, im: Float64Array, rhsRe: Float64Array, rhsIm: Float64Array): void {
@@ -585,13 +645,15 @@ export class CompiledNetwork {
    * voltage-dependent branch. The branch admittances hang on nothing else, so these
    * few numbers m are the whole non-linear problem, and the fixed-point iteration is
    * m → φ(m), the pairs' voltage magnitudes in the linear solve with the admittances
-   * for m. The first solve (at nominal magnitudes, where that iteration starts too)
-   * also gives, with one substitution per pair on the same factors, the derivative
-   * of the node voltages with respect to each pair's magnitude (dV/dm = −Y⁻¹·e·(dY/dm)·v),
-   * hence φ'. Each later solve moves the magnitudes by (I − φ')⁻¹·(φ(m) − m) with
-   * that φ' (a chord Newton step: φ' barely changes over the few steps, and keeping
-   * it costs no further substitutions). The state is kept only where the fixed-point
-   * iteration contracts at the start (every row sum of |φ'| below CONTRACTION_LIMIT),
+   * for m. Each solve (the first at nominal magnitudes, where that iteration starts
+   * too) also gives, from the same factors, the derivative of the node voltages with
+   * respect to each pair's magnitude (dV/dm = −Y⁻¹·e·(dY/dm)·v), hence φ', and the
+   * magnitudes move by (I − φ')⁻¹·(φ(m) − m). On a small network whose fixed part
+   * reduces to its load ports (loadPortReduction.ts) each solve is a dense one on the
+   * ports, whose inverse is the transfer impedance φ' needs; otherwise it assembles
+   * and factorises the nodal matrix, and φ' takes one substitution per pair. The
+   * state is kept only where the fixed-point iteration contracts at every step
+   * (every row sum of |φ'| below CONTRACTION_LIMIT),
    * the steps shrink, and no load is ever held below the low-voltage threshold: then
    * it is the state that iteration settles on. It stops on the same estimate of the
    * error left (last change × the rate changes shrink). Returns false, with nothing
@@ -605,15 +667,25 @@ export class CompiledNetwork {
     const mag = this.magnitude;
     const res = this.residual;
     for (let g = 0; g < q; g++) mag[g] = this.pairNominal[g]!;
+    const reduction = this.reduction;
+    if (reduction) this.openCircuit(reduction);
     let previousChange = 0;
     const most = Math.min(options.maxIterations, MAX_NEWTON_SOLVES);
     for (let solves = 1; solves <= most; solves++) {
       this.admittancesAtMagnitudes(threshold, true);
       if (this.held) return false;
-      this.solveLinear();
-      this.pairResiduals();
+      let moved: number;
+      if (reduction) {
+        moved = reduction.solvePorts(this.xRe, this.xIm);
+        if (moved < 0) return false;
+        this.portResiduals(reduction);
+      } else {
+        this.solveLinear();
+        this.pairResiduals();
+        moved = solves > 1 ? this.change() : 0;
+      }
       if (solves > 1) {
-        const change = this.change() / vBase;
+        const change = moved / vBase;
         if (!Number.isFinite(change)) return false;
         const rate = solves > 2 ? Math.min(1, change / previousChange) : 1;
         // Settled when the error estimate is within tolerance and the magnitudes the admittances
@@ -622,6 +694,7 @@ export class CompiledNetwork {
         let mismatch = 0;
         for (let g = 0; g < q; g++) mismatch = Math.max(mismatch, Math.abs(res[g]!));
         if ((change * rate <= options.tolerance || change <= ROUND_OFF_CHANGE) && mismatch <= options.tolerance * vBase) {
+          if (reduction) this.scatterVoltages();
           this.iterations = solves;
           this.lastChange = change;
           this.method = 'newton';
@@ -630,9 +703,17 @@ export class CompiledNetwork {
         if (solves > 2 && !(rate < 1)) return false;
         previousChange = change;
       }
-      if (!this.factored || !this.prepareJacobian()) return false;
-      this.keepVoltages();
-      solveRealFactored(this.jacobian, q, this.pivots, res);
+      if (reduction) {
+        reduction.loadedTransfer();
+        if (!this.prepareJacobian(reduction.inverseRe, reduction.inverseIm, reduction.portCount)) return false;
+      } else if (!this.factored) return false;
+      else {
+        this.sparseTransfer();
+        if (!this.prepareJacobian(this.transferRe, this.transferIm, q)) return false;
+      }
+      if (!reduction) this.keepVoltages();
+      if (q === 3) multiplyReal3(this.jacobian, res);
+      else solveRealFactored(this.jacobian, q, this.pivots, res);
       for (let g = 0; g < q; g++) {
         const next = mag[g]! + res[g]!;
         if (!(next > 0)) return false;
@@ -643,38 +724,105 @@ export class CompiledNetwork {
   }
 
   /**
-   * Branch admittances at the pairs' present magnitudes (`magnitude`); with `slopes`,
-   * also each pair's dY/dm (zero where held). Sets `held` when a voltage-dependent
-   * branch is below the low-voltage threshold.
+   * Branch admittances at the pairs' present magnitudes (`magnitude`), and their sums
+   * per load port when the network solves through them; with `slopes`, also each
+   * pair's dY/dm (zero where held). Sets `held` when a voltage-dependent branch is
+   * below the low-voltage threshold.
    */
   private admittancesAtMagnitudes(threshold: number, slopes: boolean): void {
     const q = this.pairCount;
-    this.held = false;
+    const slopeRe = this.slopeRe;
+    const slopeIm = this.slopeIm;
+    const magnitude = this.magnitude;
+    const pairOf = this.pairOf;
+    const portOf = this.portOf;
+    const vNominal = this.vNominal;
+    const inverseSquare = this.inverseSquareNominal;
+    const zipZ = this.zipZ;
+    const zipI = this.zipI;
+    const zipP = this.zipP;
+    const powerRe = this.powerRe;
+    const powerIm = this.powerIm;
+    let held = false;
     if (slopes)
       for (let g = 0; g < q; g++) {
-        this.slopeRe[g] = 0;
-        this.slopeIm[g] = 0;
+        slopeRe[g] = 0;
+        slopeIm[g] = 0;
+      }
+    const ports = this.reduction;
+    const portRe = ports === null ? null : ports.admittanceRe;
+    const portIm = ports === null ? null : ports.admittanceIm;
+    if (portRe !== null && portIm !== null)
+      for (let port = 0; port < portRe.length; port++) {
+        portRe[port] = 0;
+        portIm[port] = 0;
       }
     for (let k = 0; k < this.branchCount; k++) {
-      const v0 = this.vNominal[k]!;
-      const g = this.pairOf[k]!;
+      const v0 = vNominal[k]!;
+      const g = pairOf[k]!;
       // As updateAdmittances: a dead branch at zero volts; a constant-impedance one draws the same at any voltage.
-      const v = g >= 0 ? this.magnitude[g]! : this.bActive[k] ? v0 : 0;
+      const v = g >= 0 ? magnitude[g]! : this.bActive[k] ? v0 : 0;
       const floor = threshold * v0;
-      if (g >= 0 && v <= floor) this.held = true;
+      if (g >= 0 && v <= floor) held = true;
       const ratio = v0 / Math.max(v, floor);
-      const zi = this.zipI[k]!;
-      const zp = this.zipP[k]!;
-      const factor = (this.zipZ[k]! + zi * ratio + zp * ratio * ratio) / (v0 * v0);
-      const sr = this.powerRe[k]!;
-      const si = this.powerIm[k]!;
-      this.admittanceRe[k] = sr * factor;
-      this.admittanceIm[k] = -si * factor;
-      if (slopes && g >= 0 && v > floor) {
-        const slope = -(zi * ratio + 2 * zp * ratio * ratio) / (v * v0 * v0);
-        this.slopeRe[g] = this.slopeRe[g]! + sr * slope;
-        this.slopeIm[g] = this.slopeIm[g]! - si * slope;
+      const zi = zipI[k]!;
+      const zp = zipP[k]!;
+      const factor = (zipZ[k]! + zi * ratio + zp * ratio * ratio) * inverseSquare[k]!;
+      const yr = powerRe[k]! * factor;
+      const yi = -powerIm[k]! * factor;
+      this.admittanceRe[k] = yr;
+      this.admittanceIm[k] = yi;
+      const port = portOf[k]!;
+      if (portRe !== null && portIm !== null && port >= 0) {
+        portRe[port] = portRe[port]! + yr;
+        portIm[port] = portIm[port]! + yi;
       }
+      if (slopes && g >= 0 && v > floor) {
+        // dY/dm = −S̄·(i·ratio + 2p·ratio²)/(m·v0²), and 1/m = ratio/v0 here.
+        const slope = -(zi + 2 * zp * ratio) * ratio * ratio * inverseSquare[k]! / v0;
+        slopeRe[g] = slopeRe[g]! + powerRe[k]! * slope;
+        slopeIm[g] = slopeIm[g]! - powerIm[k]! * slope;
+      }
+    }
+    this.held = held;
+  }
+
+
+  /** The right-hand side into the reduction: its sources alone (known since compile time) unless a caller injects current. */
+  private openCircuit(reduction: LoadPortReduction): void {
+    let injected = false;
+    for (let i = 0; i < this.nodeOfUnknown.length; i++) {
+      const v = this.nodeOfUnknown[i]!;
+      if (this.injectionRe[v] !== 0 || this.injectionIm[v] !== 0) injected = true;
+    }
+    if (!injected) return reduction.openCircuit(null, null);
+    const rhsRe = this.rhsRe;
+    const rhsIm = this.rhsIm;
+    for (let i = 0; i < this.nodeOfUnknown.length; i++) {
+      const v = this.nodeOfUnknown[i]!;
+      rhsRe[i] = this.baseRhsRe[i]! + this.injectionRe[v]!;
+      rhsIm[i] = this.baseRhsIm[i]! + this.injectionIm[v]!;
+    }
+    reduction.openCircuit(rhsRe, rhsIm);
+  }
+
+  /** As `pairResiduals`, from the ports' voltages of the last solve through them (pair g is port g). */
+  private portResiduals(reduction: LoadPortReduction): void {
+    for (let g = 0; g < this.pairCount; g++) {
+      const dr = reduction.voltageRe[g]!;
+      const di = reduction.voltageIm[g]!;
+      this.pairRe[g] = dr;
+      this.pairIm[g] = di;
+      this.residual[g] = Math.sqrt(dr * dr + di * di) - this.magnitude[g]!;
+    }
+  }
+
+  /** The unknowns' voltages (`x`, elimination order) into the node voltages. */
+  private scatterVoltages(): void {
+    for (let k = 0; k < this.pattern.size; k++) {
+      const v = this.nodeAtPosition[k]!;
+      this.voltageRe[v] = this.xRe[k]!;
+      this.voltageIm[v] = this.xIm[k]!;
     }
   }
 
@@ -692,13 +840,11 @@ export class CompiledNetwork {
   }
 
   /**
-   * At the last solve: φ' from the factors just made, the contraction check, and the
-   * factors of I − φ'. dv_g/dm_j = −Z(g, j)·(dY_j/dm)·v_j with Z the transfer impedance
-   * between pairs g and j, Z = Fᵀ·D⁻¹·F where F = L⁻¹·E (one forward substitution per
-   * pair: the nodal matrix is complex symmetric, see `forwardInOrder`). False when the
-   * fixed-point iteration would not contract there, or I − φ' is singular.
+   * `transfer` ← Z, the transfer impedance between pairs in the network just factorised:
+   * Z = Fᵀ·D⁻¹·F where F = L⁻¹·E (one forward substitution per pair: the nodal matrix is
+   * complex symmetric, see `forwardInOrder`).
    */
-  private prepareJacobian(): boolean {
+  private sparseTransfer(): void {
     const q = this.pairCount;
     const p = this.pattern;
     const size = p.size;
@@ -754,6 +900,19 @@ export class CompiledNetwork {
         zRe[j * q + g] = zr;
         zIm[j * q + g] = zi;
       }
+    }
+  }
+
+  /**
+   * At the last solve, with `z` holding Z between the pairs there (row stride
+   * `stride`): φ', the contraction check, and the factors of I − φ' (its inverse, for
+   * three pairs). dv_g/dm_j = −Z(g, j)·(dY_j/dm)·v_j.
+   * False when the fixed-point iteration would not contract there, or I − φ' is singular.
+   */
+  private prepareJacobian(zRe: Float64Array, zIm: Float64Array, stride: number): boolean {
+    const q = this.pairCount;
+    if (q === 3) return this.prepareThreePairJacobian(zRe, zIm, stride);
+    for (let g = 0; g < q; g++) {
       // c_g = (dY_g/dm)·v_g: dv_h/dm_g = −Z(h, g)·c_g.
       const ur = this.pairRe[g]!;
       const ui = this.pairIm[g]!;
@@ -768,8 +927,8 @@ export class CompiledNetwork {
       const m = Math.sqrt(dr * dr + di * di);
       let rowSum = 0;
       for (let j = 0; j < q; j++) {
-        const zr = zRe[g * q + j]!;
-        const zi = zIm[g * q + j]!;
+        const zr = zRe[g * stride + j]!;
+        const zi = zIm[g * stride + j]!;
         const cr = this.driveRe[j]!;
         const ci = this.driveIm[j]!;
         const slope = -(dr * (zr * cr - zi * ci) + di * (zr * ci + zi * cr)) / m;
@@ -778,7 +937,68 @@ export class CompiledNetwork {
       }
       if (!(rowSum < CONTRACTION_LIMIT)) return false;
     }
-    return factorRealInPlace(jac, q, this.pivots);
+    // Three pairs (the commonest board): the inverse itself, applied by `multiplyReal3`.
+    return q === 3 ? invertReal3InPlace(jac) : factorRealInPlace(jac, q, this.pivots);
+  }
+
+  /**
+   * `prepareJacobian` for three pairs (the commonest board: a load from each phase to
+   * neutral), written out: 3 × 3 loops cost more than the arithmetic in them, and
+   * this runs for every Newton step. Leaves (I − φ')⁻¹ in `jacobian`.
+   */
+  private prepareThreePairJacobian(zRe: Float64Array, zIm: Float64Array, s: number): boolean {
+    const pRe = this.pairRe;
+    const pIm = this.pairIm;
+    const u0r = pRe[0]!;
+    const u0i = pIm[0]!;
+    const u1r = pRe[1]!;
+    const u1i = pIm[1]!;
+    const u2r = pRe[2]!;
+    const u2i = pIm[2]!;
+    const n0 = -1 / Math.sqrt(u0r * u0r + u0i * u0i);
+    const n1 = -1 / Math.sqrt(u1r * u1r + u1i * u1i);
+    const n2 = -1 / Math.sqrt(u2r * u2r + u2i * u2i);
+    // c_j = (dY_j/dm)·v_j
+    const sRe = this.slopeRe;
+    const sIm = this.slopeIm;
+    const c0r = sRe[0]! * u0r - sIm[0]! * u0i;
+    const c0i = sRe[0]! * u0i + sIm[0]! * u0r;
+    const c1r = sRe[1]! * u1r - sIm[1]! * u1i;
+    const c1i = sRe[1]! * u1i + sIm[1]! * u1r;
+    const c2r = sRe[2]! * u2r - sIm[2]! * u2i;
+    const c2i = sRe[2]! * u2i + sIm[2]! * u2r;
+    // φ'(g, j) = −Re(conj(v_g)·Z(g, j)·c_j)/|v_g|
+    const phi = (ur: number, ui: number, n: number, k: number, cr: number, ci: number) => {
+      const zr = zRe[k]!;
+      const zi = zIm[k]!;
+      return (ur * (zr * cr - zi * ci) + ui * (zr * ci + zi * cr)) * n;
+    };
+    const f00 = phi(u0r, u0i, n0, 0, c0r, c0i);
+    const f01 = phi(u0r, u0i, n0, 1, c1r, c1i);
+    const f02 = phi(u0r, u0i, n0, 2, c2r, c2i);
+    const f10 = phi(u1r, u1i, n1, s, c0r, c0i);
+    const f11 = phi(u1r, u1i, n1, s + 1, c1r, c1i);
+    const f12 = phi(u1r, u1i, n1, s + 2, c2r, c2i);
+    const f20 = phi(u2r, u2i, n2, 2 * s, c0r, c0i);
+    const f21 = phi(u2r, u2i, n2, 2 * s + 1, c1r, c1i);
+    const f22 = phi(u2r, u2i, n2, 2 * s + 2, c2r, c2i);
+    if (
+      !(Math.abs(f00) + Math.abs(f01) + Math.abs(f02) < CONTRACTION_LIMIT) ||
+      !(Math.abs(f10) + Math.abs(f11) + Math.abs(f12) < CONTRACTION_LIMIT) ||
+      !(Math.abs(f20) + Math.abs(f21) + Math.abs(f22) < CONTRACTION_LIMIT)
+    )
+      return false;
+    const jac = this.jacobian;
+    jac[0] = 1 - f00;
+    jac[1] = -f01;
+    jac[2] = -f02;
+    jac[3] = -f10;
+    jac[4] = 1 - f11;
+    jac[5] = -f12;
+    jac[6] = -f20;
+    jac[7] = -f21;
+    jac[8] = 1 - f22;
+    return invertReal3InPlace(jac);
   }
 
   /**

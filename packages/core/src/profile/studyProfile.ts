@@ -4,6 +4,8 @@
  * over the same intervals with the summary after it.
  */
 import type { Board } from '../board/boardModel.js';
+import { conventionsOf } from '../board/conventions/boardConventions.js';
+import type { PhaseNaming } from '../board/conventions/phaseNames.js';
 import type { DriverColumns, DriverSpec } from './batchNetwork.js';
 import { compileBatchNetwork } from './batchNetwork.js';
 import type { SwitchedStep, SwitchingSettings } from './bankController.js';
@@ -101,6 +103,8 @@ export interface ProfileBankResult {
 
 export interface ProfileResult {
   readonly board: string;
+  /** How the board names its phases ("A/B/C" or "L1/L2/L3"): reports label with it; data keys stay A/B/C. */
+  readonly phaseNames: PhaseNaming;
   readonly path: 'closed-form' | 'nodal';
   readonly timeZone: string;
   readonly intervals: { readonly count: number; readonly intervalSeconds: number; readonly first: string; readonly last: string };
@@ -125,13 +129,21 @@ export interface ProfileStudy {
 
 const pad = (x: number) => String(x).padStart(2, '0');
 
+/**
+ * The study's thresholds. The voltage band is the board's own limits (`conventions.voltageLimits`; for a
+ * board of an installation its own `voltageLimits` where it has them), the one every other verdict on
+ * the board uses, unless `profile.limits` sets either end.
+ */
 export function resolveLimits(board: Board, spec: ProfileSpec | undefined): ResolvedLimits {
   const l = spec?.limits;
+  const own = conventionsOf(board).voltageLimits;
+  const fromProfile = l?.voltageLowPercent !== undefined || l?.voltageHighPercent !== undefined;
   return {
     unbalancePercent: l?.unbalancePercent ?? PROFILE_DEFAULTS.unbalancePercent,
     neutralA: l?.neutralA ?? board.neutralRatingA ?? board.lineRatingA,
-    voltageLowPercent: l?.voltageLowPercent ?? PROFILE_DEFAULTS.voltageLowPercent,
-    voltageHighPercent: l?.voltageHighPercent ?? PROFILE_DEFAULTS.voltageHighPercent,
+    voltageLowPercent: l?.voltageLowPercent ?? 100 - own.underPercent,
+    voltageHighPercent: l?.voltageHighPercent ?? 100 + own.overPercent,
+    voltageLimitsFrom: fromProfile ? 'profile.limits' : own.preset,
   };
 }
 
@@ -265,6 +277,7 @@ export function studyProfile(input: ProfileStudyInput, options: ProfileStudyOpti
   }
   const result: ProfileResult = {
     board: board.name,
+    phaseNames: conventionsOf(board).phaseNames,
     path,
     timeZone: zone,
     intervals: { count: n, intervalSeconds: input.intervalMs / 1000, first: label(0), last: label(n - 1) },

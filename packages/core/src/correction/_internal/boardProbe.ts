@@ -9,6 +9,7 @@ import type { BoardResult } from '../../analysis/boardResult.js';
 import { analyseSolution, readLinePowers, readSequenceCurrents, type SequenceReading } from '../../analysis/analyseSolution.js';
 import { compileBoard, solveCompiledBoard, solveCompiledInstallation, type CompiledBoard, type NetworkSolution, type SolveOptions } from '../../network/solveNetwork.js';
 import type { MeteringPlace } from '../meteringPoint.js';
+import { conventionsOf } from '../../board/conventions/boardConventions.js';
 import { addCorrectionEquipment, equipmentGroups, susceptanceFromKvar, type BranchSlot, type EquipmentGroup } from '../equipment.js';
 
 export interface ProbeState {
@@ -48,11 +49,13 @@ export function createProbe(board: Board, slots: readonly BranchSlot[], name: st
   const base = meter ? meter.inFrame(board) : board;
   const solve = { ...PROBE_SOLVE, ...solveOptions };
   let count = 0;
+  const naming = conventionsOf(board).phaseNames;
   const groups = (kvar: readonly number[]) =>
     equipmentGroups(
       name,
       slots,
       kvar.map((q, i) => susceptanceFromKvar(q, slots[i]!.vNominal)),
+      { naming },
     );
   const solveEquipped = equippedSolver(base);
   return {

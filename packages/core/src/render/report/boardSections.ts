@@ -52,7 +52,7 @@ export function sourceWords(s: BoardBaseSpec['supply'], naming: PhaseNaming = 'A
       : s.bank
         ? 'a bank of single-phase units, one per phase'
         : s.openDelta
-          ? `an open delta of two single-phase units (${Object.keys(s.openDelta).join(' and ')})`
+          ? `an open delta of two single-phase units (${Object.keys(s.openDelta).map((pair) => labelIn(naming, pair)).join(' and ')})`
           : 'ideal (zero source impedance)';
   return s.zeroSequence ? `${base}; zero-sequence ${s.zeroSequence.r} + j${s.zeroSequence.x} Ω` : base;
 }
@@ -77,7 +77,7 @@ export function installationSection(spec: BoardBaseSpec, result: BoardResult): R
     ['Source voltages', s.emf ? 'unbalanced, as entered per phase' : 'balanced at nominal voltage'],
     ['Feeder, each line', conductorWords(spec.feeder?.line, spec.feeder, result.conventions.phaseNames)],
   ];
-  if (result.neutral !== null) items.push(['Feeder, neutral', conductorWords(spec.feeder?.neutral, spec.feeder)]);
+  if (result.neutral !== null) items.push(['Feeder, neutral', conductorWords(spec.feeder?.neutral, spec.feeder, result.conventions.phaseNames)]);
   if (b.neutralOpen) items.push(['Neutral', 'entered as broken (what-if)']);
   items.push(['Circuits', `${spec.loads.length}`]);
   const blocks: ReportBlock[] = [{ kind: 'facts', items }];

@@ -42,7 +42,8 @@ export interface BoardReportInput {
 export interface ClosingInput {
   readonly results: readonly BoardResult[];
   readonly correction: CorrectionReport | null;
-  readonly harmonics: HarmonicsReport | null;
+  /** A harmonic study of a board or an installation: its standards and cautions. */
+  readonly harmonics: Pick<HarmonicsReport, 'cautions'> | null;
   readonly handCheck: HandCheckResult | null;
   /** Extra assumptions (e.g. of an installation). @defaultValue [] */
   readonly assumptions?: readonly string[];

@@ -1,14 +1,16 @@
 /**
  * Assembles the report of an installation: its description and one-line
  * drawing, the feeders, the totals, one section per board, the studies that
- * ran (correction at a board, further sections), then
+ * ran (correction at a board, harmonics, further sections), then
  * assumptions, standards and safety cautions over every board.
  */
 import type { InstallationBaseSpec } from '../../board/installationSchema.js';
 import type { InstallationResult } from '../../analysis/installationResult.js';
 import type { CorrectionReport } from '../../correction/correctionResult.js';
 import type { InstallationEffect } from '../../correction/installationEffect.js';
+import type { InstallationHarmonicsReport } from '../../harmonics/harmonicsResult.js';
 import { installationCorrectionSection } from './installationCorrectionSection.js';
+import { installationHarmonicsSections } from './installationHarmonicsSections.js';
 import type { ReportDocument, ReportSection } from './reportDocument.js';
 import { boardSection, boardSectionIds, feedersSection, installationDescription, totalsSection } from './installationSections.js';
 import { closingSections, placeSection } from './buildBoardReport.js';
@@ -23,6 +25,11 @@ export interface InstallationReportInput {
   readonly result: InstallationResult;
   /** A correction study at one board of the installation (`correctInstallation`), if one ran. @defaultValue none */
   readonly correction?: { readonly board: string; readonly report: CorrectionReport; readonly effect: InstallationEffect } | null;
+  /**
+   * The installation's harmonic study (`studyInstallationHarmonics`), if one ran: an overview and a
+   * section per board; the overview replaces a correction study's resonance estimate. @defaultValue none
+   */
+  readonly harmonics?: InstallationHarmonicsReport | null;
   /** Sections from further studies, placed before the assumptions; the same id replaces. @defaultValue [] */
   readonly studySections?: readonly ReportSection[];
 }
@@ -54,12 +61,20 @@ export function buildInstallationReport(input: InstallationReportInput): ReportD
     if (resonance) sections.push(atBoard(resonance, correction.board));
     sections.push(installationCorrectionSection(correction.effect));
   }
+  const harmonics = input.harmonics ?? null;
+  if (harmonics) {
+    // The overview takes the place of a resonance estimate; the boards' sections follow it.
+    const [overview, ...perBoard] = installationHarmonicsSections(harmonics, ids);
+    const at = sections.findIndex((s) => s.id === overview!.id);
+    if (at >= 0) sections.splice(at, 1, overview!, ...perBoard);
+    else sections.push(overview!, ...perBoard);
+  }
   for (const extra of input.studySections ?? []) placeSection(sections, extra);
   sections.push(
     ...closingSections({
       results: result.boards.map((b) => b.result),
       correction: correction?.report ?? null,
-      harmonics: null,
+      harmonics,
       handCheck: null,
       assumptions: INSTALLATION_ASSUMPTIONS,
     }),

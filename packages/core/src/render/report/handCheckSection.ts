@@ -134,9 +134,9 @@ function effectsTable(r: HandCheckResult, label: Label): ReportBlock {
 /**
  * The check of a hand calculation as a report section (id `hand-check`).
  * @param triangles optional drawing of the line current triangles without and with the user's capacitors
- * @param naming the board's phase naming (`result.conventions.phaseNames`) @defaultValue 'A/B/C'
+ * @param naming the phase naming to label with @defaultValue the board's (`r.phaseNames`)
  */
-export function handCheckSection(r: HandCheckResult, triangles?: string, naming: PhaseNaming = 'A/B/C'): ReportSection {
+export function handCheckSection(r: HandCheckResult, triangles?: string, naming: PhaseNaming = r.phaseNames): ReportSection {
   const label: Label = (term) => labelIn(naming, term);
   const blocks: ReportBlock[] = [
     {

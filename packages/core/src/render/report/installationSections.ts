@@ -36,8 +36,9 @@ function feederWords(spec: InstallationBaseSpec, result: InstallationResult, nam
   if (reading?.description) return reading.description;
   const feeder = spec.boards[specIndex(spec, name)]?.feeder;
   if (!feeder) return 'none entered (zero impedance)';
-  const line = conductorWords(feeder.line, feeder);
-  return feeder.neutral && result.boards[0]!.result.neutral ? `${line}; neutral ${conductorWords(feeder.neutral, feeder)}` : line;
+  const naming = result.boards[0]!.result.conventions.phaseNames;
+  const line = conductorWords(feeder.line, feeder, naming);
+  return feeder.neutral && result.boards[0]!.result.neutral ? `${line}; neutral ${conductorWords(feeder.neutral, feeder, naming)}` : line;
 }
 
 /** The supply lines printed beside the source symbol of the one-line drawing. */
@@ -45,7 +46,7 @@ export function supplyLinesOf(spec: InstallationBaseSpec, result: InstallationRe
   const b = result.boards[0]!.result.board;
   const volts = result.boards[0]!.result.conventions.voltageNotation;
   const t = spec.supply.transformer;
-  return [`Supply ${volts} · ${b.frequencyHz} Hz`, t ? `transformer ${t.kVA} kVA, ${t.impedancePercent} %` : sourceWords(spec.supply)];
+  return [`Supply ${volts} · ${b.frequencyHz} Hz`, t ? `transformer ${t.kVA} kVA, ${t.impedancePercent} %` : sourceWords(spec.supply, result.boards[0]!.result.conventions.phaseNames)];
 }
 
 export function installationDescription(spec: InstallationBaseSpec, result: InstallationResult): ReportSection {
@@ -54,7 +55,7 @@ export function installationDescription(spec: InstallationBaseSpec, result: Inst
   const items: [string, string][] = [
     ['Installation', result.installation.name],
     ...systemFacts(main),
-    ['Source', sourceWords(spec.supply)],
+    ['Source', sourceWords(spec.supply, main.conventions.phaseNames)],
     ['Source voltages', spec.supply.emf ? 'unbalanced, as entered per phase' : 'balanced at nominal voltage'],
     ['Boards', `${result.installation.boardCount}, main board ${result.boards[0]!.name}`],
     ['Circuits', `${circuits}`],
