@@ -48,9 +48,10 @@ describe('CLI chunks', () => {
     expect(loadedText(chunkOf('schemaChecks'))).toContain(BOARD_SCHEMA);
     expect(readFileSync(DIST + chunkOf('solve'), 'utf8')).toContain(`import("./${chunkOf('schemaChecks')}")`);
   });
-  it('correct loads no yaml and no harmonic study: both come on demand, for files that need them', () => {
+  it('correct loads no yaml, no board-file schemas and no harmonic study: each comes on demand, for files that need it', () => {
     expect(loadedText(chunkOf('correct'))).not.toContain(YAML_READER);
     expect(loadedText(chunkOf('correct'))).not.toContain(HARMONIC_CORRECTION);
+    expect(loadedText(chunkOf('correct'))).not.toContain(BOARD_SCHEMA);
     expect(loadedText(chunkOf('correctWithHarmonicData'))).toContain(HARMONIC_CORRECTION);
     // (the command's code sits in a chunk it shares with `trivar report`)
     expect(loadedText(chunkOf('correct'))).toContain(`import("./${chunkOf('yamlReading')}")`);

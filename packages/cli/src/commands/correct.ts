@@ -1,5 +1,5 @@
 /** `trivar correct`: size, choose and verify power-factor correction for a board. */
-import { boardOfInstallation, meteringPointIssues, boardHasHarmonicData, compareCorrections, compareInstallationCorrections, correctBoard, correctInstallation, InputError, installationBoardIndex, isInstallationInput, normaliseBoard, normaliseInstallation, parseBoard, parseInstallation, readPlainBoardText, type CorrectionComparison, type CorrectionReport } from '@trivar/core';
+import { boardOfInstallation, meteringPointIssues, boardHasHarmonicData, compareCorrections, compareInstallationCorrections, correctBoard, correctInstallation, InputError, installationBoardIndex, isInstallationInput, normaliseBoard, normaliseInstallation, readPlainBoardText, readWellFormedBoard, type CorrectionComparison, type CorrectionReport } from '@trivar/core';
 import type { CliIo } from '../io.js';
 import { writeResult } from '../writeResult.js';
 import { renderCorrectionReport } from '../format/correctionReport.js';
@@ -68,8 +68,8 @@ export function inFileSection(error: unknown): unknown {
 }
 
 /** An installation file: the equipment on the board `--board` names (default: the main board), its effect on every board. */
-function runCorrectInstallation(input: unknown, options: CorrectCommandOptions, io: CliIo): CorrectOutcome {
-  const spec = parseInstallation(input);
+async function runCorrectInstallation(input: unknown, options: CorrectCommandOptions, io: CliIo): Promise<CorrectOutcome> {
+  const spec = (await import('./schemaChecks.js')).parseInstallation(input);
   const { installation } = normaliseInstallation(spec);
   // Checked before the study, so the error names the option, not the file's correction section.
   installationBoardIndex(installation, options.board, '--board');
@@ -106,7 +106,8 @@ export async function runCorrect(file: string, options: CorrectCommandOptions, i
       [{ code: 'not_applicable', path: '', expected: 'an installation file (with boards:) for --board', message: '--board applies to installation files (with boards:), and this is a single board' }],
       'the options do not fit the file',
     );
-  const spec = parseBoard(input);
+  // A well-formed board is read without the board-file schemas (zod and every study's section), as solve reads it.
+  const spec = readWellFormedBoard(input) ?? (await import('./schemaChecks.js')).parseBoard(input);
   const study = studySpec(spec.correction as Record<string, unknown> | undefined, options);
   if (options.measuredAt !== undefined) {
     const issues = meteringPointIssues(normaliseBoard(spec), options.measuredAt, '--measured-at');

@@ -24,10 +24,17 @@ function stiffestAdmittance(board: NetworkSolution['board']): number {
 
 /** The current below which a solution's currents are round-off, A. */
 export function currentNoiseFloor(solution: NetworkSolution): number {
+  // Index loops: read after every trial solve of a sizing, mostly before the code is optimised,
+  // where a for…of allocates an iterator result per step.
   let largest = 0;
-  for (const i of solution.lineCurrents) largest = Math.max(largest, abs(i));
+  const lines = solution.lineCurrents;
+  for (let k = 0; k < lines.length; k++) largest = Math.max(largest, abs(lines[k]!));
   if (solution.neutralCurrent) largest = Math.max(largest, abs(solution.neutralCurrent));
-  for (const states of solution.branches) for (const s of states) largest = Math.max(largest, abs(s.current));
+  const branches = solution.branches;
+  for (let l = 0; l < branches.length; l++) {
+    const states = branches[l]!;
+    for (let b = 0; b < states.length; b++) largest = Math.max(largest, abs(states[b]!.current));
+  }
   const board = solution.board;
   return Math.max(NOISE_FLOOR_RELATIVE * largest, CONDUCTOR_RESOLUTION * board.nominalLineToNeutralV * stiffestAdmittance(board));
 }

@@ -226,14 +226,18 @@ function bestTrim(branch: number, need: Need, baseF: number, choices: readonly U
     const capped = Math.min(c, room);
     if (!counts.includes(capped)) counts.push(capped);
   };
-  for (const choice of choices) {
+  // Index loops: unoptimised code allocates an iterator result per step of a for…of.
+  for (let c = 0; c < choices.length; c++) {
+    const choice = choices[c]!;
     counts.length = 0;
-    for (const f of rest) {
+    for (let r = 0; r < rest.length; r++) {
+      const f = rest[r]!;
       if (f === null || f <= 0) continue;
       add(Math.floor(f / choice.elementF + 1e-9));
       add(Math.ceil(f / choice.elementF - 1e-9));
     }
-    for (const count of counts) {
+    for (let j = 0; j < counts.length; j++) {
+      const count = counts[j]!;
       if (count < 1) continue;
       const f = baseF + count * choice.elementF;
       const tier = tierOf(f, need);
@@ -243,7 +247,10 @@ function bestTrim(branch: number, need: Need, baseF: number, choices: readonly U
       const cost = kvar + rules.unitCostKvar * count;
       if (betterOfFour(below, tier, missed, cost, bestBelow, bestTier, bestMiss, bestCost)) {
         best = { branch, choice, count };
-        [bestBelow, bestTier, bestMiss, bestCost] = [below, tier, missed, cost];
+        bestBelow = below;
+        bestTier = tier;
+        bestMiss = missed;
+        bestCost = cost;
       }
     }
   }

@@ -35,6 +35,11 @@ const PRUNING_MARGIN = 1e-7;
 const PRUNING_FLOOR = 1e-300;
 /** Most sets of one size whose bounds are kept for the next size (two doubles each). */
 const MAX_LEVEL_SETS = 1 << 18;
+/**
+ * Below this many active sets in all the programme is simply enumerated: the bookkeeping costs
+ * more than it saves (the compensator's own sizing, 6 unknowns and 9 constraints: 466 sets).
+ */
+const SKIPPING_FROM = 1000;
 /** Add/drop steps of the search for an early qualifying set (only an upper bound for skipping). */
 const PROBE_STEPS = 24;
 
@@ -47,8 +52,9 @@ const PROBE_STEPS = 24;
  * affine set), so a set holding a subset of one member fewer whose minimum already lies above a
  * qualifying set's value can only lose. The qualifying set that gives the first such upper bound
  * is found by a few add-the-most-violated / drop-the-most-negative steps from the empty set.
+ * @param skippingFrom fewest active sets in all for which sets are skipped (tests pass 0 to skip on any programme)
  */
-export function solveQuadraticProgram(qp: QuadraticProgram): number[] | null {
+export function solveQuadraticProgram(qp: QuadraticProgram, skippingFrom = SKIPPING_FROM): number[] | null {
   const n = qp.c.length;
   const m = qp.rows.length;
   const norms = qp.rows.map((r) => Math.hypot(...r) || 1);
@@ -122,6 +128,7 @@ export function solveQuadraticProgram(qp: QuadraticProgram): number[] | null {
   let upperSize = 0;
   let unconstrainedSize = 0;
   const cannotWin = (bound: number, boundSize: number) => bound - upper > PRUNING_MARGIN * (boundSize + upperSize + unconstrainedSize) + PRUNING_FLOOR;
+  // (Plain assignments below, not destructuring: unoptimised code builds an iterator for each.)
   // Lower bounds of the previous level's sets, each at its colex rank Σ C(cᵢ, i + 1): the
   // equality-constrained minimum where the set was solved, the bound it was skipped on where it was
   // skipped, NaN where its system is singular. A level of more than `MAX_LEVEL_SETS` sets keeps the
@@ -131,16 +138,20 @@ export function solveQuadraticProgram(qp: QuadraticProgram): number[] | null {
     for (let i = 0; i < y; i++) r = (r * (x - i)) / (i + 1);
     return y < 0 || x < y ? 0 : Math.round(r);
   };
-  const choose: Float64Array[] = Array.from({ length: m + 1 }, (_, x) => Float64Array.from({ length: most + 2 }, (__, y) => binomial(x, y)));
+  // Whole numbers, so ranks add up without boxing doubles (capped: a larger entry is only read on a level not kept).
+  const choose: Int32Array[] = Array.from({ length: m + 1 }, (_, x) => Int32Array.from({ length: most + 2 }, (__, y) => Math.min(binomial(x, y), 2 ** 30)));
   let previous = new Float64Array(0);
   let previousSize = new Float64Array(0);
   let previousKept = false;
   const alone = new Float64Array(m).fill(NaN);
   const aloneSize = new Float64Array(m);
+  let sets = 0;
+  for (let k = 0; k <= most; k++) sets += choose[m]![k]!;
+  const skipping = sets >= skippingFrom;
   for (let k = 0; k <= most; k++) {
-    if (k === 2 && upper === Infinity) [upper, upperSize] = probeUpperBound();
+    if (skipping && k === 2 && upper === Infinity) [upper, upperSize] = probeUpperBound();
     const count = choose[m]![k]!;
-    const kept = count <= MAX_LEVEL_SETS;
+    const kept = skipping && count <= MAX_LEVEL_SETS;
     const current = new Float64Array(kept ? count : 0).fill(NaN);
     const currentSize = new Float64Array(kept ? count : 0);
     const byRank = kept && previousKept;
@@ -149,7 +160,7 @@ export function solveQuadraticProgram(qp: QuadraticProgram): number[] | null {
     for (let more = true; more; more = nextSubset(active, k, m)) {
       let rank = 0;
       if (kept) for (let a = 0; a < k; a++) rank += choose[active[a]!]![a + 1]!;
-      if (k >= 2) {
+      if (skipping && k >= 2) {
         // Skipped when a set of one member fewer already has its minimum above the upper bound.
         let bound = NaN;
         let boundSize = 0;
@@ -162,21 +173,36 @@ export function solveQuadraticProgram(qp: QuadraticProgram): number[] | null {
             v = previous[without]!;
             vSize = previousSize[without]!;
           }
-          if (cannotWin(v, vSize)) [bound, boundSize] = [v, vSize];
+          if (cannotWin(v, vSize)) {
+            bound = v;
+            boundSize = vSize;
+          }
         }
         if (!Number.isNaN(bound)) {
-          if (kept) [current[rank], currentSize[rank]] = [bound, boundSize];
+          if (kept) {
+            current[rank] = bound;
+            currentSize[rank] = boundSize;
+          }
           continue;
         }
       }
       const verdict = judge(active, k);
       if (verdict > 0) {
-        if (kept) [current[rank], currentSize[rank]] = [value, size];
+        if (kept) {
+          current[rank] = value;
+          currentSize[rank] = size;
+        }
         if (k === 0) unconstrainedSize = size;
-        if (k === 1) [alone[active[0]!], aloneSize[active[0]!]] = [value, size];
+        if (k === 1) {
+          alone[active[0]!] = value;
+          aloneSize[active[0]!] = size;
+        }
       }
       if (verdict < 3) continue;
-      if (value < upper) [upper, upperSize] = [value, size];
+      if (value < upper) {
+        upper = value;
+        upperSize = size;
+      }
       if (value < bestValue) {
         best = Array.from(sol.subarray(0, n));
         bestValue = value;
@@ -212,7 +238,10 @@ export function solveQuadraticProgram(qp: QuadraticProgram): number[] | null {
         let s = 0;
         for (let j = 0; j < n; j++) s = s + rows[i * n + j]! * sol[j]!;
         const gap = (bounds[i]! - s) / norms[i]!;
-        if (gap > worstGap) [pick, worstGap] = [i, gap];
+        if (gap > worstGap) {
+          pick = i;
+          worstGap = gap;
+        }
       }
       if (pick < 0) break;
       let at = k;

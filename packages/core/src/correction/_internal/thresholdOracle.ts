@@ -42,8 +42,14 @@ export function createThresholdOracle(solve: (t: number) => SideReading, doubt: 
   let hiMargin = NaN;
   const record = (t: number, reading: SideReading) => {
     known.set(t, reading);
-    if (reading.low && t > lo) [lo, loMargin] = [t, reading.margin];
-    if (!reading.low && t < hi) [hi, hiMargin] = [t, reading.margin];
+    if (reading.low && t > lo) {
+      lo = t;
+      loMargin = reading.margin;
+    }
+    if (!reading.low && t < hi) {
+      hi = t;
+      hiMargin = reading.margin;
+    }
   };
   const solved = (t: number): SideReading => {
     const seen = known.get(t);
