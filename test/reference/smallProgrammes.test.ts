@@ -1,9 +1,9 @@
 /**
  * The correction's two small exact optimisers (vertex-enumeration LP, active-set-enumeration QP)
  * against a general-purpose solver: HiGHS (the `highs` npm package, test-only) on generated
- * programmes with small integer data. Asserted: the same verdict (a point or none); for the LP the
- * same optimal value of the first objective (1e-6); for the QP a feasible point whose objective is
- * no worse than HiGHS's (1e-7).
+ * programmes with small integer data, one row in four without coefficients (0 ≤ bound: dropped or
+ * infeasible). Asserted: the same verdict (a point or none); for the LP the same optimal value of
+ * the first objective (1e-6); for the QP a feasible point whose objective is no worse than HiGHS's (1e-7).
  */
 import highsDefault from 'highs';
 import fc from 'fast-check';
@@ -49,14 +49,19 @@ describe('small exact optimisers against HiGHS', () => {
         fc.integer({ min: 2, max: 4 }).chain((d) =>
           fc.record({
             d: fc.constant(d),
-            rows: fc.array(fc.array(coefficient, { minLength: d, maxLength: d }), { minLength: 1, maxLength: 6 }),
+            // One row in four without a coefficient: 0 ≤ bound holds or fails whatever x is.
+            rows: fc.array(
+              fc.oneof(
+                { weight: 3, arbitrary: fc.array(coefficient, { minLength: d, maxLength: d }) },
+                { weight: 1, arbitrary: fc.constant(Array.from({ length: d }, () => 0)) },
+              ),
+              { minLength: 1, maxLength: 6 },
+            ),
             bounds: fc.array(fc.integer({ min: -6, max: 12 }), { minLength: 6, maxLength: 6 }),
             objective: fc.array(coefficient, { minLength: d, maxLength: d }),
           }),
         ),
         async ({ d, rows, bounds, objective }) => {
-          // A row without a coefficient is no constraint to the LP (it drops it); the sizing never writes one.
-          fc.pre(rows.every((row) => row.some((a) => a !== 0)));
           // Pointed and bounded, as every use in the sizing: 0 ≤ xᵢ ≤ 10.
           const all = [...rows, ...names(d).flatMap((_, i) => [names(d).map((__, j) => (j === i ? -1 : 0)), names(d).map((__, j) => (j === i ? 1 : 0))])];
           const b = [...rows.map((_, i) => bounds[i]!), ...names(d).flatMap(() => [0, 10])];
@@ -78,6 +83,18 @@ describe('small exact optimisers against HiGHS', () => {
     );
   });
 
+  it('linear programme: a row without coefficients is dropped when 0 ≤ bound holds and makes the programme infeasible when not', () => {
+    // 0 ≤ x, y ≤ 2 (a square), minimise −x − y: optimum at (2, 2).
+    const square = { rows: [[-1, 0], [0, -1], [1, 0], [0, 1]], bounds: [0, 0, 2, 2], objectives: [[-1, -1]] };
+    const withRow = (bound: number) => ({ ...square, rows: [...square.rows, [0, 0]], bounds: [...square.bounds, bound] });
+    expect(solveLinearProgram(square)).toEqual([2, 2]);
+    expect(solveLinearProgram(withRow(0))).toEqual([2, 2]);
+    expect(solveLinearProgram(withRow(5))).toEqual([2, 2]);
+    expect(solveLinearProgram(withRow(-1))).toBeNull();
+    expect(solveLinearProgram(withRow(-1e-6))).toBeNull();
+    expect(solveLinearProgram(withRow(Number.NaN))).toBeNull();
+  });
+
   it('strictly convex quadratic programme: same feasibility and the same optimum', async () => {
     await fc.assert(
       fc.asyncProperty(
@@ -86,7 +103,13 @@ describe('small exact optimisers against HiGHS', () => {
             n: fc.constant(n),
             m: fc.array(fc.array(coefficient, { minLength: n, maxLength: n }), { minLength: n, maxLength: n }),
             c: fc.array(fc.integer({ min: -20, max: 20 }), { minLength: n, maxLength: n }),
-            rows: fc.array(fc.array(coefficient, { minLength: n, maxLength: n }), { maxLength: 8 }),
+            rows: fc.array(
+              fc.oneof(
+                { weight: 3, arbitrary: fc.array(coefficient, { minLength: n, maxLength: n }) },
+                { weight: 1, arbitrary: fc.constant(Array.from({ length: n }, () => 0)) },
+              ),
+              { maxLength: 8 },
+            ),
             bounds: fc.array(fc.integer({ min: -8, max: 8 }), { minLength: 8, maxLength: 8 }),
           }),
         ),

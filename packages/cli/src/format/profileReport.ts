@@ -50,9 +50,13 @@ function voltageTable(s: ProfileSummary, label: PhaseLabeller): string {
   );
 }
 
+/** A voltage threshold as given: 90, 91.7 (c84-service-b), 94.25. */
+const limitPercent = (x: number) => String(Math.round(x * 100) / 100);
+
 function thresholdLines(s: ProfileSummary, r: ProfileResult): string[] {
   const l = r.limits;
-  const out = [`below ${fixed(l.voltageLowPercent, 0)} % voltage: ${hours(s.hoursVoltageLow)} h · above ${fixed(l.voltageHighPercent, 0)} %: ${hours(s.hoursVoltageHigh)} h`];
+  const from = l.voltageLimitsFrom === 'profile.limits' ? 'profile.limits' : `the board's limits, ${l.voltageLimitsFrom}`;
+  const out = [`below ${limitPercent(l.voltageLowPercent)} % voltage: ${hours(s.hoursVoltageLow)} h · above ${limitPercent(l.voltageHighPercent)} %: ${hours(s.hoursVoltageHigh)} h (${from})`];
   if (s.unbalance)
     out.push(`voltage unbalance |V2|/|V1|: peak ${fixed(s.unbalance.maxPercent, 2)} % at ${s.unbalance.maxAt}, P95 ${fixed(s.unbalance.p95Percent, 2)} %, above ${fixed(l.unbalancePercent, 1)} %: ${hours(s.unbalance.hoursAbove)} h`);
   out.push(`import at a leading power factor: ${hours(s.leadingHours)} h`);

@@ -700,6 +700,7 @@ export class CompiledNetwork {
         previousChange = change;
       }
       if (reduction) {
+        reduction.loadedTransfer();
         if (!this.prepareJacobian(reduction.inverseRe, reduction.inverseIm, reduction.portCount)) return false;
       } else if (!this.factored) return false;
       else {

@@ -2,9 +2,6 @@
 export const PROFILE_DEFAULTS = {
   /** IEC 61000-2-2 / EN 50160 compatibility level for |V2|/|V1| (from memory; METHODS §3). */
   unbalancePercent: 2,
-  /** EN 50160: 230 V ± 10 % (METHODS §12, from memory). */
-  voltageLowPercent: 90,
-  voltageHighPercent: 110,
   /** Common demand-meter window (common practice, no source). */
   demandWindowMinutes: 15,
   /** A usual tariff target; the correction study uses the same default. */

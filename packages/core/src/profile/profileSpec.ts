@@ -64,8 +64,8 @@ export const profileLimitsSchema = z
   .strictObject({
     unbalancePercent: positive.optional().describe('voltage unbalance threshold |V2|/|V1|, %; default 2'),
     neutralA: positive.optional().describe('neutral current threshold, A; default the neutral rating, else the largest line rating'),
-    voltageLowPercent: positive.optional().describe('lowest acceptable phase voltage, % of nominal; default 90'),
-    voltageHighPercent: positive.optional().describe('highest acceptable phase voltage, % of nominal; default 110'),
+    voltageLowPercent: positive.optional().describe("lowest acceptable phase voltage, % of nominal; default the board's voltage limits (conventions.voltageLimits, or the board's own in an installation)"),
+    voltageHighPercent: positive.optional().describe("highest acceptable phase voltage, % of nominal; default the board's voltage limits (conventions.voltageLimits, or the board's own in an installation)"),
   })
   .describe('thresholds for the hours-above counts');
 

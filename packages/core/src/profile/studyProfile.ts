@@ -129,13 +129,21 @@ export interface ProfileStudy {
 
 const pad = (x: number) => String(x).padStart(2, '0');
 
+/**
+ * The study's thresholds. The voltage band is the board's own limits (`conventions.voltageLimits`; for a
+ * board of an installation its own `voltageLimits` where it has them), the one every other verdict on
+ * the board uses, unless `profile.limits` sets either end.
+ */
 export function resolveLimits(board: Board, spec: ProfileSpec | undefined): ResolvedLimits {
   const l = spec?.limits;
+  const own = conventionsOf(board).voltageLimits;
+  const fromProfile = l?.voltageLowPercent !== undefined || l?.voltageHighPercent !== undefined;
   return {
     unbalancePercent: l?.unbalancePercent ?? PROFILE_DEFAULTS.unbalancePercent,
     neutralA: l?.neutralA ?? board.neutralRatingA ?? board.lineRatingA,
-    voltageLowPercent: l?.voltageLowPercent ?? PROFILE_DEFAULTS.voltageLowPercent,
-    voltageHighPercent: l?.voltageHighPercent ?? PROFILE_DEFAULTS.voltageHighPercent,
+    voltageLowPercent: l?.voltageLowPercent ?? 100 - own.underPercent,
+    voltageHighPercent: l?.voltageHighPercent ?? 100 + own.overPercent,
+    voltageLimitsFrom: fromProfile ? 'profile.limits' : own.preset,
   };
 }
 

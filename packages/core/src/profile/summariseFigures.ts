@@ -2,6 +2,7 @@
  * Per-interval figures → the summary people read: peaks and percentiles with
  * when they happen, hours beyond thresholds, energy, calendar months.
  */
+import { asPrinted, type VoltageLimits } from '../board/conventions/voltageLimits.js';
 import type { Board } from '../board/boardModel.js';
 import type { IntervalFigures } from './solveBatch.js';
 import { countWhere, maximumOf, minimumOf, percentilesOf, topIndices } from './intervalStatistics.js';
@@ -40,8 +41,11 @@ export interface WorstInterval {
 export interface ResolvedLimits {
   readonly unbalancePercent: number;
   readonly neutralA: number | null;
+  /** Phase voltages below this (% of nominal, judged as printed to 0.1 %) count as low. */
   readonly voltageLowPercent: number;
   readonly voltageHighPercent: number;
+  /** Where the voltage band comes from: the board's own limits (their preset, or `custom`), or the study's `profile.limits`. */
+  readonly voltageLimitsFrom: VoltageLimits['preset'] | 'profile.limits';
 }
 
 export interface ProfileSummary {
@@ -115,8 +119,9 @@ export function summariseFigures(f: IntervalFigures, ctx: SummaryContext): Profi
       if (col[i]! < lo) lo = col[i]!;
       if (col[i]! > hi) hi = col[i]!;
     }
-    if (lo * vPct < limits.voltageLowPercent) low++;
-    if (hi * vPct > limits.voltageHighPercent) high++;
+    // Judged as printed (0.1 %), as the board's voltage verdict is, so the lowest and highest printed beside the hours agree with them.
+    if (asPrinted(lo * vPct) < limits.voltageLowPercent) low++;
+    if (asPrinted(hi * vPct) > limits.voltageHighPercent) high++;
   }
   const totalW = new Float64Array(n);
   const totalVar = new Float64Array(n);

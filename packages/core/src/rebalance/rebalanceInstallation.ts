@@ -16,6 +16,7 @@ import { assertFiniteResult } from '../analysis/assertFiniteResult.js';
 import { analyseSolution } from '../analysis/analyseSolution.js';
 import { solveInstallationNetwork } from '../network/solveNetwork.js';
 import type { BoardResult } from '../analysis/boardResult.js';
+import type { VoltageCheck } from '../analysis/voltageCheck.js';
 import * as z from 'zod';
 import {
   homeChoice,
@@ -36,7 +37,7 @@ import { greedyChoice, searchLocal, trimMoves } from './searchLocal.js';
 import { searchMeetInMiddle } from './searchMeetInMiddle.js';
 import { termBoundFor } from './termBounds.js';
 import { installationInCondition, moveInstallationCircuits } from './applyMoves.js';
-import type { CapacityExcess, CircuitMove, ConditionComparison, MoveTableRow, RebalanceReport } from './rebalanceResult.js';
+import type { BoardVoltageComparison, CapacityExcess, CircuitMove, ConditionComparison, MoveTableRow, RebalanceReport } from './rebalanceResult.js';
 import { REBALANCE_CAUTIONS, REBALANCE_NOTES } from './rebalanceWording.js';
 
 const optionsSchema = z.strictObject({
@@ -238,10 +239,25 @@ function capacityExcesses(built: BuiltProblem, study: ResolvedRebalance, choice:
   return out.sort((a, b) => b.overA - a.overA);
 }
 
-/** Solved figures at each board of the installation, in one condition. */
-function solveAtBoards(installation: Installation, condition: string, tree: RebalanceTree): ConditionFigures[] {
+/** Solved figures at each board of the installation, in one condition, and each board's voltages against its own limits. */
+function solveAtBoards(installation: Installation, condition: string, tree: RebalanceTree): { figures: ConditionFigures[]; voltages: VoltageCheck[] } {
   const solution = solveInstallationNetwork(installation);
-  return solution.boards.map((b, k) => solvedFigures(condition, tree.names[k]!, assertFiniteResult(analyseSolution(b))));
+  const results = solution.boards.map((b) => assertFiniteResult(analyseSolution(b)));
+  return { figures: results.map((r, k) => solvedFigures(condition, tree.names[k]!, r)), voltages: results.map((r) => r.voltageCheck) };
+}
+
+/** Every board in every condition, judged against the board's own voltage limits now and after the moves. */
+function voltageComparisons(
+  conditions: readonly { readonly name: string }[],
+  solved: readonly { readonly before: { readonly voltages: readonly VoltageCheck[] }; readonly after: { readonly voltages: readonly VoltageCheck[] } }[],
+  tree: RebalanceTree,
+): BoardVoltageComparison[] {
+  return conditions.flatMap((c, ci) =>
+    tree.names.map((board, b) => {
+      const before = solved[ci]!.before.voltages[b]!;
+      return { name: c.name, board, limits: before.limits, before, after: solved[ci]!.after.voltages[b]! };
+    }),
+  );
 }
 
 /**
@@ -326,14 +342,14 @@ export function rebalanceInstallation(installation: Installation, study: unknown
       board: l.board,
       weight: l.weight,
       model: { before: beforeModel[k]!, after: afterModel[k]! },
-      solved: { before: solved[l.condition]!.before[b]!, after: solved[l.condition]!.after[b]! },
+      solved: { before: solved[l.condition]!.before.figures[b]!, after: solved[l.condition]!.after.figures[b]! },
     };
   });
   const unmeasured = tree.boards.length > 1 ? resolved.conditions.flatMap((c, ci) =>
     tree.names
       .map((name, b) => ({ name, b }))
       .filter(({ b }) => !resolved.measuredBoards.includes(b))
-      .map(({ name, b }) => ({ name: c.name, board: name, weight: c.weight, before: solved[ci]!.before[b]!, after: solved[ci]!.after[b]! })),
+      .map(({ name, b }) => ({ name: c.name, board: name, weight: c.weight, before: solved[ci]!.before.figures[b]!, after: solved[ci]!.after.figures[b]! })),
   ) : [];
   const objective = o.objective ?? builtInObjective(resolved.aim, resolved.combine, built.layouts);
   const solvedScore = {
@@ -361,6 +377,11 @@ export function rebalanceInstallation(installation: Installation, study: unknown
       if (amps > cap + tie) notes.push(REBALANCE_NOTES.overCapacityNow(tree.boards.length > 1 ? board : null, label(tree.boards[0]!.phases[k]!), amps, cap, f.name));
     }),
   );
+  const voltages = voltageComparisons(resolved.conditions, solved, tree);
+  const severalConditions = resolved.conditions.length > 1;
+  for (const v of voltages)
+    if (v.before.verdict !== 'within' || v.after.verdict !== 'within')
+      notes.push(REBALANCE_NOTES.voltagesOutside(v, tree.boards.length > 1 ? v.board : null, severalConditions ? v.name : null, moves.length > 0));
   if (moves.length > 0 && solvedScore.after > solvedScore.before + tieTolerance(solvedScore.before))
     notes.push(REBALANCE_NOTES.solvedNotBetter(solvedScore.before, solvedScore.after));
   const differs = Math.max(
@@ -396,6 +417,7 @@ export function rebalanceInstallation(installation: Installation, study: unknown
     moves,
     conditions,
     otherBoards: unmeasured,
+    voltages,
     capacityExceeded: excesses,
     moveTable: o.moveTable || resolved.nearBestPercent !== null ? table : null,
     nearBest: resolved.nearBestPercent !== null ? { percent: resolved.nearBestPercent, bestScore: main.best.score } : null,

@@ -5,6 +5,8 @@
 import type { PhaseNaming } from '../board/conventions/phaseNames.js';
 import type { ConnectionSpec } from '../board/boardSchema.js';
 import type { AimWeights, ConditionFigures } from './rebalanceObjective.js';
+import type { VoltageLimits } from '../board/conventions/voltageLimits.js';
+import type { VoltageCheck } from '../analysis/voltageCheck.js';
 
 /** One line of the work order. */
 export interface CircuitMove {
@@ -54,6 +56,20 @@ export interface UnmeasuredBoardComparison {
   readonly after: ConditionFigures;
 }
 
+/**
+ * One board's voltages (its own and every load's) in one condition, network-solved now and after the
+ * moves, each judged against that board's own limits: an installation board's `voltageLimits` where it
+ * has them, else the installation's `conventions.voltageLimits` (the verdict `trivar solve` gives).
+ */
+export interface BoardVoltageComparison {
+  /** The condition's name. */
+  readonly name: string;
+  readonly board: string;
+  readonly limits: VoltageLimits;
+  readonly before: VoltageCheck;
+  readonly after: VoltageCheck;
+}
+
 /** A line of the answer above its capacity (fast model), when no answer within the move limit keeps every line within. */
 export interface CapacityExcess {
   readonly board: string;
@@ -93,6 +109,8 @@ export interface RebalanceReport {
   readonly conditions: readonly ConditionComparison[];
   /** Installations: the boards the score does not read, network-solved before and after. */
   readonly otherBoards: readonly UnmeasuredBoardComparison[];
+  /** Every board's voltages against its own limits, now and after, per condition (conditions in order, boards main first). */
+  readonly voltages: readonly BoardVoltageComparison[];
   /** Lines over capacity in the answer, worst first; empty when every line is within. */
   readonly capacityExceeded: readonly CapacityExcess[];
   readonly moveTable: readonly MoveTableRow[] | null;

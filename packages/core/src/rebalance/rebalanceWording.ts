@@ -1,5 +1,21 @@
 /** Every sentence a rebalancing report carries, in one place. */
 import type { PhaseLabel } from '../board/conventions/phaseNames.js';
+import { bandWords } from '../board/conventions/voltageLimits.js';
+import type { VoltageCheck } from '../analysis/voltageCheck.js';
+
+const VERDICT_WORDS: Record<VoltageCheck['verdict'], string> = {
+  within: 'within',
+  under: 'below',
+  over: 'above',
+  'under-and-over': 'both below and above',
+};
+
+/** "lowest 97.4 % (phase B)" or the highest, whichever side the verdict names; both for within. */
+function extremesWords(check: VoltageCheck): string {
+  const low = `lowest ${check.lowest.percent.toFixed(1)} % (${check.lowest.at})`;
+  const high = `highest ${check.highest.percent.toFixed(1)} % (${check.highest.at})`;
+  return check.verdict === 'under' ? low : check.verdict === 'over' ? high : `${low}, ${high}`;
+}
 
 export const REBALANCE_CAUTIONS: readonly string[] = [
   'Moving a circuit is work on live-capable equipment: isolate and prove dead first; the work is for a qualified electrician under local codes and licensed practice.',
@@ -24,4 +40,11 @@ export const REBALANCE_NOTES = {
     `line ${e.line}${withBoard ? ` at "${e.board}"` : ''} in "${e.condition}" carries ${e.currentA.toFixed(1)} A, ${e.overA.toFixed(1)} A over its ${e.capacityA.toFixed(0)} A capacity`,
   overCapacityNow: (board: string | null, line: PhaseLabel, amps: number, capacity: number, condition: string) =>
     `The present wiring puts ${amps.toFixed(1)} A on line ${line}${board ? ` at "${board}"` : ''} in "${condition}", above its ${capacity.toFixed(0)} A capacity.`,
+  /** A board outside its own voltage limits after the moves or now (`board` null on a one-board file, `condition` null with one condition). */
+  voltagesOutside: (v: { limits: VoltageCheck['limits']; before: VoltageCheck; after: VoltageCheck }, board: string | null, condition: string | null, moved: boolean) => {
+    const where = `${board ? ` at "${board}"` : ''}${condition ? ` in "${condition}"` : ''}`;
+    const limits = `its voltage limits ${bandWords(v.limits)} (${v.limits.preset})`;
+    if (!moved) return `The voltages${where} are ${VERDICT_WORDS[v.before.verdict]} ${limits}: ${extremesWords(v.before)}.`;
+    return `After the moves the voltages${where} are ${VERDICT_WORDS[v.after.verdict]} ${limits}: ${extremesWords(v.after)}; now ${VERDICT_WORDS[v.before.verdict]} (${extremesWords(v.before)}).`;
+  },
 } as const;

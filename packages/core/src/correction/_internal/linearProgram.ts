@@ -28,26 +28,40 @@ const FEASIBILITY = 1e-11;
 /** Relative tolerance for "equal" objective values in the lexicographic comparison. */
 const TIE = 1e-12;
 
-function normalised(lp: LinearProgram): { rows: number[][]; bounds: number[] } {
+/**
+ * The rows scaled to unit norm. A row without a coefficient (`0·z ≤ bound`) holds for every z or for
+ * none, so it takes no part in the vertices: it is dropped when its bound is not negative and makes the
+ * whole programme infeasible (null) when it is — below −FEASIBILITY times the bounds' scale, the
+ * tolerance every other row is judged with at z = 0.
+ */
+function normalised(lp: LinearProgram): { rows: number[][]; bounds: number[] } | null {
   const rows: number[][] = [];
   const bounds: number[] = [];
+  const boundScale = Math.max(1e-12, ...lp.bounds.map(Math.abs));
+  let infeasible = false;
   lp.rows.forEach((row, i) => {
     const norm = Math.hypot(...row);
-    if (norm === 0) return;
+    if (norm === 0) {
+      if (!(lp.bounds[i]! >= -FEASIBILITY * boundScale)) infeasible = true;
+      return;
+    }
     rows.push(row.map((v) => v / norm));
     bounds.push(lp.bounds[i]! / norm);
   });
-  return { rows, bounds };
+  return infeasible ? null : { rows, bounds };
 }
 
 /**
  * The lexicographically best vertex, or null when no vertex is feasible
- * (infeasible programme). The feasible set must be pointed (e.g. every variable
- * bounded below), which holds for all uses here.
+ * (infeasible programme, including a row without coefficients whose bound is
+ * negative). The feasible set must be pointed (e.g. every variable bounded
+ * below), which holds for all uses here.
  */
 export function solveLinearProgram(lp: LinearProgram): number[] | null {
   const d = lp.objectives[0]?.length ?? 0;
-  const { rows, bounds } = normalised(lp);
+  const programme = normalised(lp);
+  if (!programme) return null;
+  const { rows, bounds } = programme;
   const m = rows.length;
   const scale = Math.max(1e-12, ...bounds.map(Math.abs));
   let best: number[] | null = null;

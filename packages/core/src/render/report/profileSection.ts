@@ -12,6 +12,8 @@ export interface ProfileChart {
 }
 
 const orDash = (x: number | null, d: number): string => (x === null ? '—' : fixed(x, d));
+/** A voltage threshold as given: 90, 91.7 (c84-service-b), 94.25. */
+const limitPercent = (x: number) => String(Math.round(x * 100) / 100);
 
 /**
  * @param naming the phase naming conductors and phases are labelled with @defaultValue the board's (`p.phaseNames`)
@@ -29,7 +31,10 @@ export function profileSection(p: ProfileResult, charts: readonly ProfileChart[]
         ['Billing power factor', fixed(s.energy.billingPf, 3)],
         ['Hours importing at a leading PF', fixed(s.leadingHours, 1)],
         ...((s.unbalance ? [['Voltage unbalance, highest / 95th percentile', `${fixed(s.unbalance.maxPercent, 2)} % (${s.unbalance.maxAt}) / ${fixed(s.unbalance.p95Percent, 2)} %`]] : []) as [string, string][]),
-        ['Hours below / above the voltage limits', `${fixed(s.hoursVoltageLow, 1)} / ${fixed(s.hoursVoltageHigh, 1)}`],
+        [
+          `Hours below ${limitPercent(p.limits.voltageLowPercent)} % / above ${limitPercent(p.limits.voltageHighPercent)} % (${p.limits.voltageLimitsFrom === 'profile.limits' ? 'profile.limits' : `the board's voltage limits, ${p.limits.voltageLimitsFrom}`})`,
+          `${fixed(s.hoursVoltageLow, 1)} / ${fixed(s.hoursVoltageHigh, 1)}`,
+        ],
       ],
     },
     {
