@@ -186,21 +186,25 @@ const multiBankArb = fc
     } as InstallationSpec;
   });
 
+/** The installation, its models and its fundamental; null for one that cannot carry its loads at the fundamental or has fewer than two banks. */
+function withBanks(spec: InstallationSpec) {
+  try {
+    const prepared = resolveInstallationHarmonics(parseInstallation(spec));
+    const fundamental = solveInstallationNetwork(prepared.installation);
+    return prepared.bankBoards.length < 2 ? null : { ...prepared, fundamental };
+  } catch {
+    return null;
+  }
+}
+
 describe('joint scan on random installations', () => {
   it('the states with every other bank fully on are the existing scan exactly; levels and counts as documented', () => {
     let checked = 0;
     fc.assert(
       fc.property(multiBankArb, (spec) => {
-        let prepared: ReturnType<typeof resolveInstallationHarmonics>;
-        let fundamental: ReturnType<typeof solveInstallationNetwork>;
-        try {
-          prepared = resolveInstallationHarmonics(parseInstallation(spec));
-          fundamental = solveInstallationNetwork(prepared.installation);
-        } catch {
-          return; // a supply that cannot carry the loads at the fundamental
-        }
-        const { models, bankBoards } = prepared;
-        if (bankBoards.length < 2) return;
+        const prepared = withBanks(spec);
+        if (!prepared) return;
+        const { models, bankBoards, fundamental } = prepared;
         checked++;
         const grid = scanGrid(15, 0.25);
         for (const b of bankBoards) {
@@ -251,16 +255,9 @@ describe('joint scan on random installations', () => {
     let checked = 0;
     fc.assert(
       fc.property(multiBankArb, fc.double({ min: 1, max: 15, noNaN: true }), fc.array(fc.boolean(), { minLength: 12, maxLength: 12 }), (spec, h, switches) => {
-        let prepared: ReturnType<typeof resolveInstallationHarmonics>;
-        let fundamental: ReturnType<typeof solveInstallationNetwork>;
-        try {
-          prepared = resolveInstallationHarmonics(parseInstallation(spec));
-          fundamental = solveInstallationNetwork(prepared.installation);
-        } catch {
-          return;
-        }
-        const { models, bankBoards } = prepared;
-        if (bankBoards.length < 2) return;
+        const prepared = withBanks(spec);
+        if (!prepared) return;
+        const { models, bankBoards, fundamental } = prepared;
         const b = bankBoards[0]!;
         const evaluator = createInstallationScanEvaluator(fundamental, models, b);
         let n = 0;
