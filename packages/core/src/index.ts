@@ -25,7 +25,8 @@ export type {
 export { PHYSICAL_RANGES } from './board/boardSchema.js';
 export { boardSchema } from './boardFile/boardFileSchema.js';
 export type { BoardValidation } from './boardFile/validateBoard.js';
-export { validateBoard, parseBoard, parseBoardText } from './boardFile/validateBoard.js';
+export { validateBoard, parseBoard } from './boardFile/validateBoard.js';
+export { parseBoardText } from './boardFile/parseBoardText.js';
 export { readWellFormedBoard } from './boardFile/boardFileRules.js';
 export { readBoardText } from './board/readBoardText.js';
 export { readPlainBoardText, BOARD_TEXT_LIMITS } from './board/boardText.js';
@@ -194,7 +195,8 @@ export type { FixedNetworkInput } from './network/solveFixedNetwork.js';
 export { solveFixedNetwork } from './network/solveFixedNetwork.js';
 export type { NodalMatrix } from './network/terminalImpedance.js';
 export type { CorrectionVariant, CorrectionHarmonics, HarmonicCorrectionReport, ArrangementHarmonics, HarmonicComparison } from './harmonics/correctWithHarmonics.js';
-export { correctWithHarmonics, compareWithHarmonics, boardHasHarmonicData, bankOfReport } from './harmonics/correctWithHarmonics.js';
+export { correctWithHarmonics, compareWithHarmonics, bankOfReport } from './harmonics/correctWithHarmonics.js';
+export { boardHasHarmonicData } from './harmonics/boardHasHarmonicData.js';
 
 // Rebalancing (which circuits to move to which phase)
 export type { RebalanceSpec, AimSpec, AimFigure, LoadConditionSpec, PinSpec } from './rebalance/rebalanceSpec.js';

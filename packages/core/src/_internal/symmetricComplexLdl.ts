@@ -5,26 +5,36 @@
  * is wanted, comes from the same factors. For the load ports of a network
  * (loadPortReduction.ts), whose matrix, the ports' admittances, is complex symmetric
  * and in practice strongly diagonal. Without pivoting a small pivot would cost
- * accuracy unseen, so the factorisation refuses one below `PIVOT_FLOOR` of its
- * row's diagonal, and the caller takes a pivoted solve instead.
+ * accuracy unseen, so the factorisation refuses one below `PIVOT_FLOOR` of the
+ * largest entry, and the caller takes a pivoted solve instead.
  */
 
-/** Each pivot at least this fraction of its diagonal entry: growth, and so the error, stays within about 1e2·ε·|A|. */
+/**
+ * Each pivot at least this fraction of the matrix's largest entry (sizes as |re| + |im|):
+ * each elimination step then grows the entries by at most about 1/PIVOT_FLOOR, a few
+ * digits of the sixteen for the three to a dozen ports this serves.
+ */
 export const PIVOT_FLOOR = 1e-2;
 
 /**
  * Factorises in place: the strict lower triangle receives L (unit diagonal), the
  * diagonal D⁻¹ (the reciprocals of the pivots: every later use multiplies), the
  * strict upper triangle L·D transposed (scratch for the factorisation). Returns
- * false, with the matrix spoiled, when a pivot is below PIVOT_FLOOR of its diagonal
+ * false, with the matrix spoiled, when a pivot is below PIVOT_FLOOR of the largest
  * entry or not finite.
  */
 export function factorSymmetricInPlace(re: Float64Array, im: Float64Array, n: number): boolean {
+  let largest = 0;
+  for (let i = 0; i < n; i++)
+    for (let j = 0; j <= i; j++) {
+      const size = Math.abs(re[i * n + j]!) + Math.abs(im[i * n + j]!);
+      if (size > largest) largest = size;
+    }
+  const floor = PIVOT_FLOOR * largest;
   for (let k = 0; k < n; k++) {
     const kk = k * n + k;
     let dr = re[kk]!;
     let di = im[kk]!;
-    const size = Math.abs(dr) + Math.abs(di);
     // d_k = a_kk − Σ_j l_kj·(l_kj·d_j), with each l_kj·d_j kept at (j, k) when column j was done.
     for (let j = 0; j < k; j++) {
       const lr = re[k * n + j]!;
@@ -35,7 +45,7 @@ export function factorSymmetricInPlace(re: Float64Array, im: Float64Array, n: nu
       di -= lr * pi + li * pr;
     }
     const pivot = Math.abs(dr) + Math.abs(di);
-    if (!(pivot >= PIVOT_FLOOR * size) || !(pivot > 0) || !(pivot < Infinity)) return false;
+    if (!(pivot >= floor) || !(pivot > 0) || !(pivot < Infinity)) return false;
     const dd = dr * dr + di * di;
     const invR = dr / dd;
     const invI = -di / dd;

@@ -33,6 +33,21 @@ import { factorSymmetricInPlace, invertSymmetricFactored, PIVOT_FLOOR, solveSymm
  */
 const WELL_DETERMINED = 1e-4;
 
+/** What a reduction is built from (see the fields of LoadPortReduction of the same names). */
+interface PortTables {
+  readonly pattern: SparsePattern;
+  readonly fixedRe: Float64Array;
+  readonly fixedIm: Float64Array;
+  readonly from: Int32Array;
+  readonly to: Int32Array;
+  readonly fixedVoltageRe: Float64Array;
+  readonly fixedVoltageIm: Float64Array;
+  readonly wRe: Float64Array;
+  readonly wIm: Float64Array;
+  readonly towardRe: Float64Array;
+  readonly towardIm: Float64Array;
+}
+
 export class LoadPortReduction {
   readonly portCount: number;
   private readonly pattern: SparsePattern;
@@ -84,19 +99,8 @@ export class LoadPortReduction {
   readonly admittanceRe: Float64Array;
   readonly admittanceIm: Float64Array;
 
-  private constructor(
-    pattern: SparsePattern,
-    fixedRe: Float64Array,
-    fixedIm: Float64Array,
-    from: Int32Array,
-    to: Int32Array,
-    fixedVoltageRe: Float64Array,
-    fixedVoltageIm: Float64Array,
-    wRe: Float64Array,
-    wIm: Float64Array,
-    towardRe: Float64Array,
-    towardIm: Float64Array,
-  ) {
+  private constructor(tables: PortTables) {
+    const { pattern, fixedRe, fixedIm, from, to, fixedVoltageRe, fixedVoltageIm, wRe, wIm, towardRe, towardIm } = tables;
     const n = pattern.size;
     const q = from.length;
     this.portCount = q;
@@ -179,7 +183,8 @@ export class LoadPortReduction {
         wIm[a * q + p] = across(towardIm, p * n, a);
       }
     if (!invertComplexInPlace(wRe, wIm, q, new Int32Array(q), WELL_DETERMINED)) return null;
-    const reduction = q < 3 ? LoadPortReduction.padded(pattern, fixedRe, fixedIm, from, to, fixedVoltageRe, fixedVoltageIm, wRe, wIm, towardRe, towardIm) : new LoadPortReduction(pattern, fixedRe, fixedIm, from, to, fixedVoltageRe, fixedVoltageIm, wRe, wIm, towardRe, towardIm);
+    const tables: PortTables = { pattern, fixedRe, fixedIm, from, to, fixedVoltageRe, fixedVoltageIm, wRe, wIm, towardRe, towardIm };
+    const reduction = new LoadPortReduction(q < 3 ? LoadPortReduction.padded(tables) : tables);
     reduction.openCircuitInto(rhsRe, rhsIm, reduction.sourceOpenRe, reduction.sourceOpenIm, reduction.sourceDriveRe, reduction.sourceDriveIm);
     for (const table of [wRe, wIm, towardRe, towardIm, reduction.sourceOpenRe, reduction.sourceOpenIm, reduction.sourceDriveRe, reduction.sourceDriveIm])
       for (const x of table) if (!Number.isFinite(x)) return null;
@@ -190,19 +195,8 @@ export class LoadPortReduction {
    * One or two ports made three with ports that carry nothing (W's identity, no
    * transfer, open at both ends), so that they take the three-port solve.
    */
-  private static padded(
-    pattern: SparsePattern,
-    fixedRe: Float64Array,
-    fixedIm: Float64Array,
-    from: Int32Array,
-    to: Int32Array,
-    fixedVoltageRe: Float64Array,
-    fixedVoltageIm: Float64Array,
-    wRe: Float64Array,
-    wIm: Float64Array,
-    towardRe: Float64Array,
-    towardIm: Float64Array,
-  ): LoadPortReduction {
+  private static padded(tables: PortTables): PortTables {
+    const { pattern, from, to, fixedVoltageRe, fixedVoltageIm, wRe, wIm, towardRe, towardIm } = tables;
     const q = from.length;
     const n = pattern.size;
     const grow = (x: Float64Array) => {
@@ -219,7 +213,7 @@ export class LoadPortReduction {
       }
     const ends = (x: Int32Array) => Int32Array.from({ length: 3 }, (_, a) => (a < q ? x[a]! : -1));
     const volts = (x: Float64Array) => Float64Array.from({ length: 3 }, (_, a) => (a < q ? x[a]! : 0));
-    return new LoadPortReduction(pattern, fixedRe, fixedIm, ends(from), ends(to), volts(fixedVoltageRe), volts(fixedVoltageIm), paddedRe, paddedIm, grow(towardRe), grow(towardIm));
+    return { ...tables, from: ends(from), to: ends(to), fixedVoltageRe: volts(fixedVoltageRe), fixedVoltageIm: volts(fixedVoltageIm), wRe: paddedRe, wIm: paddedIm, towardRe: grow(towardRe), towardIm: grow(towardIm) };
   }
 
   /**
@@ -428,16 +422,25 @@ export class LoadPortReduction {
     dd = d2r * d2r + d2i * d2i;
     const e2r = d2r / dd;
     const e2i = -d2i / dd;
-    const small = (dr: number, di: number, ar: number, ai: number) => {
+    // The pivot rule of factorSymmetricInPlace: each pivot at least PIVOT_FLOOR of the largest entry.
+    const largest = Math.max(
+      Math.abs(a00r) + Math.abs(a00i),
+      Math.abs(a10r) + Math.abs(a10i),
+      Math.abs(a11r) + Math.abs(a11i),
+      Math.abs(a20r) + Math.abs(a20i),
+      Math.abs(a21r) + Math.abs(a21i),
+      Math.abs(a22r) + Math.abs(a22i),
+    );
+    const small = (dr: number, di: number) => {
       const pivot = Math.abs(dr) + Math.abs(di);
-      return !(pivot >= PIVOT_FLOOR * (Math.abs(ar) + Math.abs(ai))) || !(pivot > 0) || !(pivot < Infinity);
+      return !(pivot >= PIVOT_FLOOR * largest) || !(pivot > 0) || !(pivot < Infinity);
     };
     const vRe = this.voltageRe;
     const vIm = this.voltageIm;
     const injected = this.injected;
     const dRe = injected ? this.injectedDriveRe : this.sourceDriveRe;
     const dIm = injected ? this.injectedDriveIm : this.sourceDriveIm;
-    if (small(a00r, a00i, a00r, a00i) || small(d1r, d1i, a11r, a11i) || small(d2r, d2i, a22r, a22i)) {
+    if (small(a00r, a00i) || small(d1r, d1i) || small(d2r, d2i)) {
       for (let a = 0; a < 3; a++) {
         vRe[a] = dRe[a]!;
         vIm[a] = dIm[a]!;

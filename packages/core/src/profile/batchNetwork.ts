@@ -9,7 +9,7 @@
  * complex power of edge e at its nominal voltage. The coefficients K are
  * built here from the board's ratings, so the kernels touch only numbers.
  */
-import type { Board, Terminal } from '../board/boardModel.js';
+import type { Board, LoadBranch, BoardLoad, Terminal } from '../board/boardModel.js';
 import type { ComplexValue } from '../complex.js';
 
 /** How one driver reaches the board's loads: load index → complex coefficient. */
@@ -48,29 +48,51 @@ export function edgeIndex(net: BatchNetwork, from: Terminal, to: Terminal, vNomi
 
 /** Groups the board's branches into edges and folds the drivers' coefficients onto them. */
 export function compileBatchNetwork(board: Board, drivers: readonly DriverSpec[], extraEdges: readonly BatchEdge[] = []): BatchNetwork {
-  const edges: BatchEdge[] = [];
-  const edgeOf = new Map<string, number>();
-  const branchEdge = board.loads.map((load) =>
+  const folded = foldDrivers(
+    board.loads,
+    (_, b) => ({ from: b.from, to: b.to, vNominal: b.vNominal }),
+    (e) => keyOf(e.from, e.to, e.vNominal),
+    drivers,
+    extraEdges,
+  );
+  return { board, edges: folded.edges, drivers, coefficients: folded.coefficients };
+}
+
+/**
+ * Edges of a list of loads (branches with the same key share one edge, in the order first met; extra
+ * edges after them) and the drivers' coefficients folded onto them ([driver][edge][part][re, im]).
+ */
+export function foldDrivers<E extends BatchEdge>(
+  loads: readonly BoardLoad[],
+  edgeOf: (load: number, branch: LoadBranch) => E,
+  keyOfEdge: (edge: E) => string,
+  drivers: readonly DriverSpec[],
+  extraEdges: readonly E[],
+): { edges: E[]; coefficients: Float64Array } {
+  const edges: E[] = [];
+  const indexOf = new Map<string, number>();
+  const branchEdge = loads.map((load, l) =>
     load.branches.map((b) => {
-      const key = keyOf(b.from, b.to, b.vNominal);
-      let e = edgeOf.get(key);
+      const edge = edgeOf(l, b);
+      const key = keyOfEdge(edge);
+      let e = indexOf.get(key);
       if (e === undefined) {
-        e = edges.push({ from: b.from, to: b.to, vNominal: b.vNominal }) - 1;
-        edgeOf.set(key, e);
+        e = edges.push(edge) - 1;
+        indexOf.set(key, e);
       }
       return e;
     }),
   );
   // Edges that equipment added later (capacitor steps) will need, even where no load sits.
   for (const x of extraEdges) {
-    const key = keyOf(x.from, x.to, x.vNominal);
-    if (!edgeOf.has(key)) edgeOf.set(key, edges.push(x) - 1);
+    const key = keyOfEdge(x);
+    if (!indexOf.has(key)) indexOf.set(key, edges.push(x) - 1);
   }
   const E = edges.length;
   const coefficients = new Float64Array(drivers.length * E * 6);
   drivers.forEach((driver, d) => {
     for (const { load, coefficient } of driver.loads) {
-      const l = board.loads[load];
+      const l = loads[load];
       if (!l) throw new RangeError(`compileBatchNetwork: driver "${driver.name}" names load ${load}, which the board does not have`);
       const share = 1 / l.branches.length;
       l.branches.forEach((b, k) => {
@@ -83,7 +105,7 @@ export function compileBatchNetwork(board: Board, drivers: readonly DriverSpec[]
       });
     }
   });
-  return { board, edges, drivers, coefficients };
+  return { edges, coefficients };
 }
 
 /**
@@ -100,7 +122,7 @@ export interface DriverColumns {
  * Fills `out` ([edge][part][re, im]) with the edge powers of interval i.
  * Written once here so both kernels read the loads the same way.
  */
-export function edgePowersAt(net: BatchNetwork, columns: DriverColumns, i: number, out: Float64Array): void {
+export function edgePowersAt(net: Pick<BatchNetwork, 'coefficients'>, columns: DriverColumns, i: number, out: Float64Array): void {
   out.fill(0);
   const n = out.length;
   const k = net.coefficients;

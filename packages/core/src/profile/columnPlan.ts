@@ -55,19 +55,81 @@ export interface ColumnPlanOptions {
   readonly undrivenAtRating?: boolean;
 }
 
+/** What a header's target name stands for: how a plan finds loads, groups and metered phases. */
+export interface TargetResolver {
+  /** The loads targets index (metered phases are appended as they are met). */
+  readonly loads: BoardLoad[];
+  /** The target a name stands for, or null after pushing an issue at `at`. */
+  resolve(name: string, at: string, issues: InputIssue[]): { kind: ColumnTarget['kind']; loads: number[] } | null;
+}
+
+/** A constant-power phase-to-neutral load standing for a metered phase total. */
+export function meteredPhaseLoad(name: string, p: PhaseId, vNominal: number): BoardLoad {
+  return {
+    name,
+    connection: `${p}-N`,
+    model: 'constant-power',
+    origin: 'added',
+    branches: [{ from: p, to: 'N', sNominal: { re: 0, im: 0 }, vNominal, zip: { z: 0, i: 0, p: 1 } }],
+  };
+}
+
+/** The phase a `phase A` / `phase L1` target names, or null when the name is not one. */
+export function phaseTargetOf(name: string): PhaseId | null {
+  const phase = PHASE.exec(name);
+  return phase ? ((readPhaseTerm(phase[1]!.toUpperCase())?.canonical ?? phase[1]!.toUpperCase()) as PhaseId) : null;
+}
+
+/** A single board's targets: its loads by name, `profile.groups`, and its metered phases. */
+function boardResolver(board: Board, groups: Readonly<Record<string, readonly string[]>>): TargetResolver {
+  const loads: BoardLoad[] = [...board.loads];
+  const loadIndex = new Map(board.loads.map((l, i) => [l.name, i]));
+  // Phases in messages and in the metered loads' names as the board file names them (L1 or A).
+  const label = labellerOf(conventionsOf(board).phaseNames);
+  return {
+    loads,
+    resolve(name, at, issues) {
+      const p = phaseTargetOf(name);
+      if (p) {
+        if (!board.phases.includes(p) || !board.hasNeutral) {
+          issues.push(inputIssue('unknown_target', at, `a phase of this board with a neutral (${board.hasNeutral ? board.phases.map(label).join(', ') : 'this board has none'})`, name));
+          return null;
+        }
+        return { kind: 'phase', loads: [loads.push(meteredPhaseLoad(`metered phase ${label(p)}`, p, board.nominalLineToNeutralV)) - 1] };
+      }
+      if (groups[name]) {
+        const members = groups[name]!.map((n) => loadIndex.get(n));
+        if (members.some((x) => x === undefined)) {
+          issues.push(inputIssue('unknown_load', `profile.groups.${name}`, 'names of loads on the board', groups[name]!.find((n) => !loadIndex.has(n))));
+          return null;
+        }
+        return { kind: 'group', loads: members as number[] };
+      }
+      if (loadIndex.has(name)) return { kind: 'load', loads: [loadIndex.get(name)!] };
+      issues.push(inputIssue('unknown_target', at, 'a load name on the board, a group from profile.groups, or "phase A/B/C" ("phase L1/L2/L3")', name));
+      return null;
+    },
+  };
+}
+
 /**
  * Reads the header row against the board.
  * @throws {InputError} naming each header cell that is wrong, with its column.
  */
 export function planColumns(board: Board, header: readonly string[], options: ColumnPlanOptions = {}): ColumnPlan {
+  const resolver = boardResolver(board, options.groups ?? {});
+  return { board: { ...board, loads: resolver.loads }, ...planTargets(header, board.loads.length, resolver, options) };
+}
+
+/**
+ * The header's targets through a resolver; the first `ownLoads` of its loads are the file's (the rest metered).
+ * @throws {InputError} naming each header cell that is wrong, with its column.
+ */
+export function planTargets(header: readonly string[], ownLoads: number, resolver: TargetResolver, options: ColumnPlanOptions = {}): Omit<ColumnPlan, 'board'> {
   const issues: InputIssue[] = [];
   if (header.length < 2) throw new InputError([inputIssue('missing', 'header', 'a time column and at least one data column')], 'the interval data cannot be read');
   const byName = new Map<string, { kind: ColumnTarget['kind']; loads: number[]; columns: Partial<Record<Quantity, number>> }>();
-  const loads: BoardLoad[] = [...board.loads];
-  const loadIndex = new Map(board.loads.map((l, i) => [l.name, i]));
-  const groups = options.groups ?? {};
-  // Phases in messages and in the metered loads' names as the board file names them (L1 or A).
-  const label = labellerOf(conventionsOf(board).phaseNames);
+  const { loads } = resolver;
   header.slice(1).forEach((raw, c) => {
     const cell = raw.trim();
     const at = where(c + 1, cell);
@@ -80,34 +142,9 @@ export function planColumns(board: Board, header: readonly string[], options: Co
     const quantity = m[2] as Quantity;
     let target = byName.get(name);
     if (!target) {
-      const phase = PHASE.exec(name);
-      if (phase) {
-        const p = (readPhaseTerm(phase[1]!.toUpperCase())?.canonical ?? phase[1]!.toUpperCase()) as PhaseId;
-        if (!board.phases.includes(p) || !board.hasNeutral) {
-          issues.push(inputIssue('unknown_target', at, `a phase of this board with a neutral (${board.hasNeutral ? board.phases.map(label).join(', ') : 'this board has none'})`, name));
-          return;
-        }
-        const index =
-          loads.push({
-            name: `metered phase ${label(p)}`,
-            connection: `${p}-N`,
-            model: 'constant-power',
-            origin: 'added',
-            branches: [{ from: p, to: 'N', sNominal: { re: 0, im: 0 }, vNominal: board.nominalLineToNeutralV, zip: { z: 0, i: 0, p: 1 } }],
-          }) - 1;
-        target = { kind: 'phase', loads: [index], columns: {} };
-      } else if (groups[name]) {
-        const members = groups[name]!.map((n) => loadIndex.get(n));
-        if (members.some((x) => x === undefined)) {
-          issues.push(inputIssue('unknown_load', `profile.groups.${name}`, 'names of loads on the board', groups[name]!.find((n) => !loadIndex.has(n))));
-          return;
-        }
-        target = { kind: 'group', loads: members as number[], columns: {} };
-      } else if (loadIndex.has(name)) target = { kind: 'load', loads: [loadIndex.get(name)!], columns: {} };
-      else {
-        issues.push(inputIssue('unknown_target', at, 'a load name on the board, a group from profile.groups, or "phase A/B/C" ("phase L1/L2/L3")', name));
-        return;
-      }
+      const found = resolver.resolve(name, at, issues);
+      if (!found) return;
+      target = { ...found, columns: {} };
       byName.set(name, target);
     }
     if (target.columns[quantity] !== undefined) {
@@ -137,11 +174,10 @@ export function planColumns(board: Board, header: readonly string[], options: Co
   }
   if (issues.length) throw new InputError(issues, 'the interval data header is not valid');
   return {
-    board: { ...board, loads },
     timeHeader: header[0]!.trim(),
     dataHeaders: header.slice(1).map((h) => h.trim()),
     targets,
-    undriven: board.loads.filter((_, i) => !drivenBy.has(i)).map((l) => l.name),
+    undriven: loads.slice(0, ownLoads).filter((_, i) => !drivenBy.has(i)).map((l) => l.name),
     undrivenAtRating: options.undrivenAtRating ?? false,
   };
 }

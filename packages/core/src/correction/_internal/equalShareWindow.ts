@@ -11,7 +11,7 @@
  */
 import type { BoardProbe, ProbeState } from './boardProbe.js';
 import type { LineBand } from './sizeForLineTargets.js';
-import { createThresholdOracle } from './thresholdOracle.js';
+import { createThresholdOracle, type SideReading } from './thresholdOracle.js';
 
 export interface EqualShareWindow {
   /** Per-branch kvar at nominal voltage; null when no equal bank meets every target below the limit. */
@@ -38,23 +38,24 @@ export function equalShareWindow(probe: BoardProbe, start: ProbeState, targetBan
   const scale = start.lineS.reduce((a, b) => a + b, 0);
   if (scale === 0) return { minKvar: 0, limitKvar: 0 };
   // Each trial solve answers both bisections: t_limit's (within the lower bounds below it) and
-  // t_min's (short of the target below it, i.e. not meeting it).
-  const readings = new Map<number, ProbeState>();
+  // t_min's (short of the target below it, i.e. not meeting it). Only the readings are kept, not the
+  // solved states (which would keep every trial's solution alive).
+  const targetReading = (s: ProbeState): SideReading => ({ low: !meets(s), margin: shortMargin(s) });
+  const readings = new Map<number, { limit: SideReading; target: SideReading }>();
   const solved = (t: number) => {
-    let s = readings.get(t);
-    if (!s) readings.set(t, (s = t === 0 ? start : at(t)));
-    return s;
+    let r = readings.get(t);
+    if (!r) {
+      const s = t === 0 ? start : at(t);
+      readings.set(t, (r = { limit: { low: within(s), margin: withinMargin(s) }, target: targetReading(s) }));
+    }
+    return r;
   };
   // Round-off in the solves blurs both tests over about 4e-13 of the board's kVA either side of their
   // thresholds (the most seen on the shipped examples, on an installation's sub-board): answers are
   // inferred only from 250 times that away.
   const doubt = 1e-10 * scale;
-  const limitSide = createThresholdOracle((t) => {
-    const s = solved(t);
-    return { low: within(s), margin: withinMargin(s) };
-  }, doubt);
-  const targetReading = (s: ProbeState) => ({ low: !meets(s), margin: shortMargin(s) });
-  const targetSide = createThresholdOracle((t) => targetReading(solved(t)), doubt);
+  const limitSide = createThresholdOracle((t) => solved(t).limit, doubt);
+  const targetSide = createThresholdOracle((t) => solved(t).target, doubt);
   limitSide.isLow(0);
   // t_limit by doubling, then bisection.
   let ok = 0;
@@ -73,8 +74,8 @@ export function equalShareWindow(probe: BoardProbe, start: ProbeState, targetBan
   const limitKvar = ok;
   if (limitOnly) return { minKvar: null, limitKvar };
   if (meets(start)) return { minKvar: 0, limitKvar };
-  if (!meets(solved(limitKvar))) return { minKvar: null, limitKvar };
-  for (const [t, s] of readings) targetSide.record(t, targetReading(s));
+  if (solved(limitKvar).target.low) return { minKvar: null, limitKvar };
+  for (const [t, r] of readings) targetSide.record(t, r.target);
   targetSide.narrow();
   let lo = 0;
   let hi = limitKvar;

@@ -33,6 +33,8 @@ const TOLERANCE = 1e-12;
 const PRUNING_MARGIN = 1e-7;
 /** And at least this: values near the subnormal range (from 2.2e-308) carry no relative precision. */
 const PRUNING_FLOOR = 1e-300;
+/** Most sets of one size whose bounds are kept for the next size (two doubles each). */
+const MAX_LEVEL_SETS = 1 << 18;
 /** Add/drop steps of the search for an early qualifying set (only an upper bound for skipping). */
 const PROBE_STEPS = 24;
 
@@ -41,9 +43,9 @@ const PROBE_STEPS = 24;
  *
  * Every candidate active set is judged as in a plain enumeration (in the same order, by the same
  * arithmetic: the answer is the same to the last bit), but a set is skipped when it cannot win: its
- * equality-constrained minimum is at least that of each of its members alone (a minimum over a
- * smaller affine set), so a set holding a constraint whose one-constraint minimum already lies above
- * a qualifying set's value can only lose. The qualifying set that gives the first such upper bound
+ * equality-constrained minimum is at least that of each of its subsets (a minimum over a larger
+ * affine set), so a set holding a subset of one member fewer whose minimum already lies above a
+ * qualifying set's value can only lose. The qualifying set that gives the first such upper bound
  * is found by a few add-the-most-violated / drop-the-most-negative steps from the empty set.
  */
 export function solveQuadraticProgram(qp: QuadraticProgram): number[] | null {
@@ -115,27 +117,64 @@ export function solveQuadraticProgram(qp: QuadraticProgram): number[] | null {
     }
     return 3;
   };
-  // Each constraint's one-constraint minimum (NaN where that system is singular), from the enumeration's k = 1 pass.
-  const alone = new Float64Array(m).fill(NaN);
-  const aloneSize = new Float64Array(m);
   // An upper bound on the winner's value: the value of a set known to qualify.
   let upper = Infinity;
   let upperSize = 0;
   let unconstrainedSize = 0;
-  const cannotWin = (i: number) => alone[i]! - upper > PRUNING_MARGIN * (aloneSize[i]! + upperSize + unconstrainedSize) + PRUNING_FLOOR;
+  const cannotWin = (bound: number, boundSize: number) => bound - upper > PRUNING_MARGIN * (boundSize + upperSize + unconstrainedSize) + PRUNING_FLOOR;
+  // Lower bounds of the previous level's sets, each at its colex rank Σ C(cᵢ, i + 1): the
+  // equality-constrained minimum where the set was solved, the bound it was skipped on where it was
+  // skipped, NaN where its system is singular. A level of more than `MAX_LEVEL_SETS` sets keeps the
+  // one-constraint minima only.
+  const binomial = (x: number, y: number): number => {
+    let r = 1;
+    for (let i = 0; i < y; i++) r = (r * (x - i)) / (i + 1);
+    return y < 0 || x < y ? 0 : Math.round(r);
+  };
+  const choose: Float64Array[] = Array.from({ length: m + 1 }, (_, x) => Float64Array.from({ length: most + 2 }, (__, y) => binomial(x, y)));
+  let previous = new Float64Array(0);
+  let previousSize = new Float64Array(0);
+  let previousKept = false;
+  const alone = new Float64Array(m).fill(NaN);
+  const aloneSize = new Float64Array(m);
   for (let k = 0; k <= most; k++) {
     if (k === 2 && upper === Infinity) [upper, upperSize] = probeUpperBound();
+    const count = choose[m]![k]!;
+    const kept = count <= MAX_LEVEL_SETS;
+    const current = new Float64Array(kept ? count : 0).fill(NaN);
+    const currentSize = new Float64Array(kept ? count : 0);
+    const byRank = kept && previousKept;
     // Every k-element subset of the constraints in lexicographic order, held in `active`.
     for (let i = 0; i < k; i++) active[i] = i;
     for (let more = true; more; more = nextSubset(active, k, m)) {
+      let rank = 0;
+      if (kept) for (let a = 0; a < k; a++) rank += choose[active[a]!]![a + 1]!;
       if (k >= 2) {
-        let skip = false;
-        for (let a = 0; a < k && !skip; a++) skip = cannotWin(active[a]!);
-        if (skip) continue;
+        // Skipped when a set of one member fewer already has its minimum above the upper bound.
+        let bound = NaN;
+        let boundSize = 0;
+        for (let a = 0; a < k && Number.isNaN(bound); a++) {
+          let v = alone[active[a]!]!;
+          let vSize = aloneSize[active[a]!]!;
+          if (byRank) {
+            let without = 0;
+            for (let b = 0; b < k; b++) if (b !== a) without += choose[active[b]!]![b < a ? b + 1 : b]!;
+            v = previous[without]!;
+            vSize = previousSize[without]!;
+          }
+          if (cannotWin(v, vSize)) [bound, boundSize] = [v, vSize];
+        }
+        if (!Number.isNaN(bound)) {
+          if (kept) [current[rank], currentSize[rank]] = [bound, boundSize];
+          continue;
+        }
       }
       const verdict = judge(active, k);
-      if (k === 0 && verdict > 0) unconstrainedSize = size;
-      if (k === 1 && verdict > 0) [alone[active[0]!], aloneSize[active[0]!]] = [value, size];
+      if (verdict > 0) {
+        if (kept) [current[rank], currentSize[rank]] = [value, size];
+        if (k === 0) unconstrainedSize = size;
+        if (k === 1) [alone[active[0]!], aloneSize[active[0]!]] = [value, size];
+      }
       if (verdict < 3) continue;
       if (value < upper) [upper, upperSize] = [value, size];
       if (value < bestValue) {
@@ -143,6 +182,9 @@ export function solveQuadraticProgram(qp: QuadraticProgram): number[] | null {
         bestValue = value;
       }
     }
+    previous = current;
+    previousSize = currentSize;
+    previousKept = kept;
   }
   return best;
 

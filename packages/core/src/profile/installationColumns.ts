@@ -1,0 +1,125 @@
+/**
+ * An interval-data header read against an installation. Loads are named per
+ * board, so a column names a load by its name where only one board has a load
+ * of that name, else as `<board>/<load>`; a metered phase total is `phase A`
+ * at the main board or `<board>/phase A` at a sub-board. `profile.groups`
+ * members are named the same way.
+ *
+ * The plan is an ordinary ColumnPlan whose `board` lists every board's loads
+ * in one row (named `<board>/<load>`), with the board each load sits on beside
+ * it; only its loads and nominal voltage are read (drivers, columns), never solved.
+ */
+import type { BoardLoad, Installation, PhaseId } from '../board/boardModel.js';
+import { labellerOf } from '../board/conventions/phaseNames.js';
+import { conventionsOf } from '../board/conventions/boardConventions.js';
+import { inputIssue, type InputIssue } from '../errors.js';
+import { meteredPhaseLoad, phaseTargetOf, planTargets, type ColumnPlan, type ColumnPlanOptions, type TargetResolver } from './columnPlan.js';
+
+export interface InstallationColumnPlan extends ColumnPlan {
+  /** Board number (0 = main, i + 1 = subBoards[i]) of each load in `board.loads`. */
+  readonly loadBoards: readonly number[];
+}
+
+/** Every board's name, main first (board number = index). */
+export const boardNamesOf = (installation: Installation): string[] => [installation.main.name, ...installation.subBoards.map((sb) => sb.name)];
+
+/** Every board's loads in one list, in board order, with the board number of each. */
+function flattenLoads(installation: Installation): { loads: BoardLoad[]; boards: number[] } {
+  const names = boardNamesOf(installation);
+  const loads: BoardLoad[] = [];
+  const boards: number[] = [];
+  [installation.main.loads, ...installation.subBoards.map((sb) => sb.loads)].forEach((own, b) =>
+    own.forEach((l) => {
+      loads.push({ ...l, name: `${names[b]}/${l.name}` });
+      boards.push(b);
+    }),
+  );
+  return { loads, boards };
+}
+
+/** What a load name (bare or `<board>/<load>`) stands for among the flattened loads. */
+function loadLookup(installation: Installation): (name: string) => number[] {
+  const names = boardNamesOf(installation);
+  const byName = new Map<string, number[]>();
+  const add = (key: string, index: number) => {
+    const list = byName.get(key) ?? [];
+    if (!list.includes(index)) list.push(index);
+    byName.set(key, list);
+  };
+  let index = 0;
+  [installation.main.loads, ...installation.subBoards.map((sb) => sb.loads)].forEach((own, b) =>
+    own.forEach((l) => {
+      add(l.name, index);
+      add(`${names[b]}/${l.name}`, index);
+      index++;
+    }),
+  );
+  return (name) => byName.get(name) ?? [];
+}
+
+function installationResolver(installation: Installation, groups: Readonly<Record<string, readonly string[]>>, boards: number[]): TargetResolver {
+  const { loads } = flattenLoads(installation);
+  const names = boardNamesOf(installation);
+  const main = installation.main;
+  const label = labellerOf(conventionsOf(main).phaseNames);
+  const lookup = loadLookup(installation);
+  const loadsExpected = 'a load name on one board, "<board>/<load>", a group from profile.groups, or "phase A/B/C" at the main board ("<board>/phase A" at a sub-board; L1/L2/L3 also)';
+  /** One load for a name, or null after an issue: none, or several boards have it. */
+  const oneLoad = (name: string, path: string, expected: string, issues: InputIssue[]): number | null => {
+    const found = lookup(name);
+    if (found.length === 1) return found[0]!;
+    if (found.length === 0) issues.push(inputIssue('unknown_target', path, expected, name));
+    else
+      issues.push(
+        inputIssue('ambiguous_target', path, `the load with its board, one of ${found.map((l) => `"${loads[l]!.name}"`).join(', ')} (several boards have a load "${name}")`, name),
+      );
+    return null;
+  };
+  /** `phase A` (main board) or `<board>/phase A`: the board number and phase, or null when the name is no phase. */
+  const meteredAt = (name: string): { board: number; phase: PhaseId } | null => {
+    const bare = phaseTargetOf(name);
+    if (bare) return { board: 0, phase: bare };
+    const cut = name.lastIndexOf('/');
+    if (cut < 0) return null;
+    const phase = phaseTargetOf(name.slice(cut + 1).trim());
+    const board = names.indexOf(name.slice(0, cut).trim());
+    return phase && board >= 0 ? { board, phase } : null;
+  };
+  return {
+    loads,
+    resolve(name, at, issues) {
+      const metered = meteredAt(name);
+      if (metered) {
+        if (!main.phases.includes(metered.phase) || !main.hasNeutral) {
+          issues.push(inputIssue('unknown_target', at, `a phase of the installation with a neutral (${main.hasNeutral ? main.phases.map(label).join(', ') : 'this installation has none'})`, name));
+          return null;
+        }
+        boards.push(metered.board);
+        return { kind: 'phase', loads: [loads.push(meteredPhaseLoad(`${names[metered.board]}/metered phase ${label(metered.phase)}`, metered.phase, main.nominalLineToNeutralV)) - 1] };
+      }
+      if (groups[name]) {
+        const members: number[] = [];
+        for (const [k, member] of groups[name]!.entries()) {
+          const l = oneLoad(member, `profile.groups.${name}[${k}]`, 'a load name on one board, or "<board>/<load>"', issues);
+          if (l === null) return null;
+          members.push(l);
+        }
+        return { kind: 'group', loads: members };
+      }
+      const l = oneLoad(name, at, loadsExpected, issues);
+      return l === null ? null : { kind: 'load', loads: [l] };
+    },
+  };
+}
+
+/**
+ * Reads the header row against an installation.
+ * @throws {InputError} naming each header cell that is wrong (unknown or ambiguous load, bad quantity), with its column.
+ */
+export function planInstallationColumns(installation: Installation, header: readonly string[], options: ColumnPlanOptions = {}): InstallationColumnPlan {
+  const flat = flattenLoads(installation);
+  const boards = [...flat.boards];
+  const resolver = installationResolver(installation, options.groups ?? {}, boards);
+  const planned = planTargets(header, flat.loads.length, resolver, options);
+  return { board: { ...installation.main, name: installation.name, loads: resolver.loads }, loadBoards: boards, ...planned };
+}

@@ -1,0 +1,84 @@
+/**
+ * The profile's batch path on installations against the general compiled solve
+ * (solveInstallationNetwork) on random installations (arbitraries/installationSpec.ts:
+ * trees of boards, unequal and zero-impedance conductors, every supply shape) and
+ * random intervals: every board's bus voltages, neutral-bar voltage, incomer line
+ * currents and neutral current agree to 1e-9 relative (absolute floor 1e-9 × the
+ * largest quantity of its kind on the interval), interval by interval.
+ */
+import fc from 'fast-check';
+import { describe, it } from 'vitest';
+import { normaliseInstallation, parseInstallation, planDrivers, solveInstallationNetwork, terminalVoltage, type Installation, type InstallationSpec } from '@trivar/core';
+import { planInstallationColumns } from '../../packages/core/src/profile/installationColumns.js';
+import { compileInstallationBatch, createInstallationKernel } from '../../packages/core/src/profile/installationBatch.js';
+import { edgePowersAt, type DriverColumns } from '../../packages/core/src/profile/batchNetwork.js';
+import { installationSpecArb } from './arbitraries/installationSpec.js';
+import { expectComplexClose } from '../support/tolerance.js';
+
+const REL = 1e-9;
+const strip = ({ shape: _s, ...file }: InstallationSpec & { shape: string }): InstallationSpec => file;
+
+/** The installation with each load's rating scaled (index = the plan's flattened load order). */
+function scaledInstallation(installation: Installation, scales: readonly number[]): Installation {
+  let k = 0;
+  const scaleLoads = (loads: Installation['main']['loads']) =>
+    loads.map((load) => {
+      const x = scales[k++]!;
+      return { ...load, branches: load.branches.map((b) => ({ ...b, sNominal: { re: b.sNominal.re * x, im: b.sNominal.im * x } })) };
+    });
+  const main = { ...installation.main, loads: scaleLoads(installation.main.loads) };
+  return { ...installation, main, subBoards: installation.subBoards.map((sb) => ({ ...sb, loads: scaleLoads(sb.loads) })) };
+}
+
+// A share of exact zeros: whole boards and floating stars switched off.
+const scaleArb = fc.oneof({ weight: 1, arbitrary: fc.constant(0) }, { weight: 4, arbitrary: fc.double({ min: 0.05, max: 1.5, noNaN: true }) });
+
+describe('installation batch path = general compiled solve', () => {
+  it('every board, interval by interval', () => {
+    fc.assert(
+      fc.property(
+        installationSpecArb({ minBoards: 1, maxBoards: 6 }).chain((spec) => {
+          const loadCount = spec.boards.reduce((s, b) => s + (b.loads?.length ?? 0), 0);
+          return fc.tuple(fc.constant(spec), fc.array(fc.array(scaleArb, { minLength: loadCount, maxLength: loadCount }), { minLength: 1, maxLength: 3 }));
+        }),
+        ([spec, intervals]) => {
+          const { installation } = normaliseInstallation(parseInstallation(strip(spec)));
+          const names = [installation.main, ...installation.subBoards].flatMap((b) => b.loads.map((l) => `${b.name}/${l.name} [x]`));
+          if (names.length === 0) return;
+          const plan = planInstallationColumns(installation, ['time', ...names]);
+          const drivers = planDrivers(plan);
+          const net = compileInstallationBatch(installation, plan.board.loads, plan.loadBoards, drivers);
+          const kernel = createInstallationKernel(net);
+          const columns: DriverColumns = {
+            count: intervals.length,
+            re: names.map((_, l) => Float64Array.from(intervals, (x) => x[l]!)),
+            im: names.map(() => new Float64Array(intervals.length)),
+          };
+          const powers = new Float64Array(net.edges.length * 6);
+          intervals.forEach((scales, i) => {
+            edgePowersAt(net, columns, i, powers);
+            kernel.solve(powers, i);
+            const general = solveInstallationNetwork(scaledInstallation(installation, scales));
+            const vMax = Math.max(...installation.main.emf.map((e) => Math.hypot(e.re, e.im)));
+            const rated = plan.board.loads.flatMap((l) => l.branches).reduce((s, b) => s + Math.hypot(b.sNominal.re, b.sNominal.im), 0) / installation.main.nominalLineToNeutralV;
+            const iMax = Math.max(rated, ...general.boards.flatMap((s) => s.lineCurrents.map((c) => Math.hypot(c.re, c.im))));
+            const vTol = { rel: REL, abs: REL * vMax };
+            const iTol = { rel: REL, abs: REL * iMax };
+            general.boards.forEach((g, b) => {
+              const s = kernel.states[b]!;
+              const at = `interval ${i} ${g.board.name}`;
+              installation.main.phases.forEach((p, k) => {
+                expectComplexClose({ re: s.busRe[k]!, im: s.busIm[k]! }, terminalVoltage(g, p)!, vTol, `${at} bus ${p}`);
+                expectComplexClose({ re: s.lineRe[k]!, im: s.lineIm[k]! }, g.lineCurrents[k]!, iTol, `${at} line ${p}`);
+              });
+              if (g.neutralCurrent) expectComplexClose({ re: s.neutral[0]!, im: s.neutral[1]! }, g.neutralCurrent, iTol, `${at} neutral`);
+              const bar = installation.main.hasNeutral ? terminalVoltage(g, 'N') : null;
+              if (bar) expectComplexClose({ re: s.reference[0]!, im: s.reference[1]! }, bar, vTol, `${at} neutral bar`);
+            });
+          });
+        },
+      ),
+      { numRuns: 40 },
+    );
+  });
+});
