@@ -168,6 +168,14 @@ describe('an installation collapsed to one board (zero-impedance feeders)', () =
     );
   });
 
+  it('a single-phase board whose neutral equals its line current up to round-off: no neutral-above-phase warning either way (found by the property above)', () => {
+    const board = {"name": "random board", "supply": {"system": "single-phase", "voltage": {"lineToNeutral": 230}, "frequencyHz": 50, "emf": {"A": {"V": 230, "angleDeg": 0}}}, "loads": [{"name": "L1", "connection": "A-N", "kW": -0.15, "pf": 0.5, "spectrum": "switch-mode"}, {"name": "L2", "connection": "A-N", "kW": -0.18232422023098788, "pf": 0.6077474007699596, "model": "constant-impedance", "linearForm": "series"}, {"name": "L3", "connection": "A-N", "kW": -0.2722782609880827, "pf": 0.907594203293609, "linearForm": "series"}, {"name": "L4", "connection": "A-N", "kW": -0.15, "pf": 0.5, "zip": {"z": 0, "i": 0, "p": 1}, "spectrum": "switch-mode"}], "harmonics": {"scan": {"maxOrder": 13, "step": 0.25}, "pcc": {}}} as BoardSpec;
+    const installation = collapsed(board, [0, 0, 0], [1, 1, 0, 0, 0, 0], 0);
+    const single = studyHarmonics(board);
+    expect(single.warnings.map((w) => w.code)).toEqual(['ideal-source']);
+    sameStudy(studyInstallationHarmonics(installation), single, 'main');
+  });
+
   it('a board file given to the installation study is the installation with that one board', () => {
     fc.assert(
       fc.property(collapseCaseArb, ({ board }) => {

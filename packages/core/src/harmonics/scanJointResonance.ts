@@ -97,6 +97,33 @@ const stateWords = (boards: readonly string[], levels: readonly Level[]) => leve
 
 const nearness = (peak: ScanPeak, order: number) => Math.abs(peak.order - order) / order;
 
+type Summary = Omit<JointScanCombination, 'steps' | 'label' | 'capacitorKvar'>;
+
+/** One combination of this bank over the other banks' states: each state's peaks, the extremes, the nearest approaches. */
+function summarise(scanned: readonly { readonly otherBanks: string; readonly peaks: readonly ScanPeak[] }[], checked: readonly number[]): Summary {
+  const band = HARMONICS_DEFAULTS.resonanceBand;
+  const peaks = scanned.flatMap(({ otherBanks, peaks: found }) => found.map((p): JointPeak => ({ ...p, otherBanks })));
+  const first = <T>(list: readonly T[], better: (x: T, y: T) => boolean) => list.reduce<T | null>((best, x) => (best === null || better(x, best) ? x : best), null);
+  const nearest = first(
+    peaks.flatMap((p) => checked.map((o) => ({ ...p, checkedOrder: o }))),
+    (x, y) => nearness(x, x.checkedOrder) < nearness(y, y.checkedOrder),
+  );
+  return {
+    networkStates: scanned.length,
+    states: scanned.map((x) => ({ otherBanks: x.otherBanks, peakOrders: [...new Set(x.peaks.map((p) => Math.round(p.order * 100) / 100))].sort((a, b) => a - b) })),
+    lowestPeak: first(peaks, (x, y) => x.order < y.order),
+    highestPeak: first(peaks, (x, y) => x.order > y.order),
+    nearest,
+    nearOrders: checked.flatMap((o) => {
+      const peak = first(
+        peaks.filter((p) => Math.abs(p.order - o) <= band * o),
+        (x, y) => nearness(x, o) < nearness(y, o),
+      );
+      return peak ? [{ order: o, peak }] : [];
+    }),
+  };
+}
+
 /**
  * Scans the resonance seen from the evaluator's board for every combination of its bank's steps
  * with the other banks switched; null when the board has no bank or the installation no other bank.
@@ -130,36 +157,12 @@ export function scanJointResonance(fundamental: InstallationSolution, models: re
       return state;
     }),
   );
-  const band = HARMONICS_DEFAULTS.resonanceBand;
-  const summaries = new Map<number, Omit<JointScanCombination, 'steps' | 'label' | 'capacitorKvar'>>();
-  let current: { lowest: JointPeak | null; highest: JointPeak | null; nearest: JointScanCombination['nearest']; near: Map<number, JointPeak>; states: JointScanCombination['states'][number][] } | null = null;
+  // Per distinct combination, every state of the other banks with its peaks (states run combination by combination).
+  const scanned = distinct.map(() => [] as { otherBanks: string; peaks: ScanPeak[] }[]);
   scanNetworkStates(evaluator, options.grid, states, (s, _values, peaks) => {
-    const d = Math.floor(s / chosen.length);
-    const levelsOn = chosen[s % chosen.length]!;
-    if (s % chosen.length === 0) current = { lowest: null, highest: null, nearest: null, near: new Map(), states: [] };
-    const acc = current!;
-    const others = stateWords(otherNames, levelsOn);
-    acc.states.push({ otherBanks: others, peakOrders: [...new Set(peaks.map((p) => Math.round(p.order * 100) / 100))].sort((a, b) => a - b) });
-    for (const p of peaks) {
-      const peak: JointPeak = { ...p, otherBanks: others };
-      if (!acc.lowest || p.order < acc.lowest.order) acc.lowest = peak;
-      if (!acc.highest || p.order > acc.highest.order) acc.highest = peak;
-      for (const o of options.checkedOrders) {
-        if (!acc.nearest || nearness(p, o) < nearness(acc.nearest, acc.nearest.checkedOrder)) acc.nearest = { ...peak, checkedOrder: o };
-        const held = acc.near.get(o);
-        if (Math.abs(p.order - o) <= band * o && (!held || nearness(p, o) < nearness(held, o))) acc.near.set(o, peak);
-      }
-    }
-    if (s % chosen.length === chosen.length - 1)
-      summaries.set(distinct[d]!, {
-        networkStates: chosen.length,
-        states: acc.states,
-        lowestPeak: acc.lowest,
-        highestPeak: acc.highest,
-        nearest: acc.nearest,
-        nearOrders: options.checkedOrders.flatMap((o) => (acc.near.has(o) ? [{ order: o, peak: acc.near.get(o)! }] : [])),
-      });
+    scanned[Math.floor(s / chosen.length)]!.push({ otherBanks: stateWords(otherNames, chosen[s % chosen.length]!), peaks });
   });
+  const summaries = new Map(distinct.map((c, d) => [c, summarise(scanned[d]!, options.checkedOrders)]));
   return {
     otherBanks: others.map((_, j) => ({
       board: otherNames[j]!,

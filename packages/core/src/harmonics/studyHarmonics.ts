@@ -210,7 +210,8 @@ export function harmonicsWarnings({ scan, neutral, voltageDistortion, duty, tdd,
   const warn = (code: string, message: string, value: number | null = null, threshold: number | null = null) => warnings.push({ code, message, value, threshold });
   if (scan && scan.shortCircuitKVA === null) warn('ideal-source', harmonicsWarningText.idealSource);
   if (neutral?.overloaded) warn('neutral-overload', harmonicsWarningText.neutralOverload(neutral.current.rms, neutral.ratingA!), neutral.current.rms, neutral.ratingA);
-  if (neutral?.ratioToPhase !== null && neutral?.ratioToPhase !== undefined && neutral.ratioToPhase > 1)
+  // Above 1 by more than round-off: on a single-phase board the neutral is the line's return, 1 ± 1e-16.
+  if (neutral?.ratioToPhase !== null && neutral?.ratioToPhase !== undefined && neutral.ratioToPhase > 1 + 1e-9)
     warn('neutral-above-phase', harmonicsWarningText.neutralAbovePhase(neutral.ratioToPhase, splitPhase), neutral.ratioToPhase, 1);
   if (voltageDistortion) {
     const { individualLimitPercent: individual, thdLimitPercent: thdLimit } = voltageDistortion;
