@@ -228,7 +228,7 @@ export function createProgram(io: CliIo, outcome: RunOutcome = { exitCode: EXIT.
   program
     .command('profile')
     .description('run interval data through the board: peaks and percentiles, hours over limits, energy and billing power factor by month, an automatic bank simulated over the year')
-    .argument('<board>', 'board file (YAML or JSON), or - for standard input')
+    .argument('<board>', 'board or installation file (YAML or JSON), or - for standard input')
     .option('--data <file>', 'interval data (CSV)')
     .option('--time-zone <name>', 'IANA time zone of times written without an offset, and of calendar months (default UTC)')
     .addOption(new Option('--fill-gaps <how>', 'fill missing intervals (default: leave them out)').choices(['none', 'hold', 'linear']))
@@ -236,6 +236,7 @@ export function createProgram(io: CliIo, outcome: RunOutcome = { exitCode: EXIT.
     .option('--bank', 'simulate an automatic capacitor bank over the profile (profile.bank in the board file sets it up)')
     .option('--correction-bank', "simulate instead the bank trivar correct designs for this board: its steps, fixed part and controller settings (the board file's correction section)")
     .option('--pf <value>', 'target power factor of the bank (0 < pf <= 1; default 0.95)', numberIn(0, 1, 'a power factor above 0 and at most 1'))
+    .option('--board <name>', 'installation files: the board the bank goes on (default: the main board)')
     .option('--summary-csv <file>', 'write the summary as CSV')
     .option('--intervals-csv <file>', 'write per-interval results as CSV')
     .option('--charts <dir>', 'write SVG charts (currents, power factor, load duration) into this folder')
