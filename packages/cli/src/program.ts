@@ -51,7 +51,9 @@ Exit codes: as for solve, plus
 const PROFILE_EXAMPLES = `
 Interval data: a CSV file whose first column is the time (2025-03-30 02:15, or ISO 8601 with Z or an
 offset) and whose other headers are "<target> [<quantity>]":
-  target    a load name, a group from the board file's profile.groups, or phase A / phase B / phase C
+  target    a load name, a group from the board file's profile.groups, or phase A / phase B / phase C;
+            on an installation file a load on one board by its name, else "<board>/<load>", and
+            "<board>/phase A" for a sub-board's metered phase
   quantity  x (fraction of rating) | kW | kW + kvar | kW + pf | A + pf   (pf < 0 = leading)
 Intervals from 1 s to 1 h. Gaps and repeated times are reported; gaps stay out of every figure
 unless --fill-gaps says how to fill them. Tariff, limits and the bank live under profile: in the
@@ -62,6 +64,7 @@ Examples:
   trivar profile examples/quay-street-flats.yaml --data /tmp/quay-street.csv --time-zone Europe/Dublin
   trivar profile examples/quay-street-flats.yaml --data /tmp/quay-street.csv --bank --charts charts/
   trivar profile board.yaml --data meter.csv --fill-gaps hold --summary-csv summary.csv --json
+  trivar profile examples/osier-mill-studios.yaml --data examples/osier-mill-day.csv --bank --board Pottery
 
 Exit codes: as for solve (3 also for interval data that cannot be read: every bad cell is named
 by row and column)`;
@@ -227,7 +230,7 @@ export function createProgram(io: CliIo, outcome: RunOutcome = { exitCode: EXIT.
 
   program
     .command('profile')
-    .description('run interval data through the board: peaks and percentiles, hours over limits, energy and billing power factor by month, an automatic bank simulated over the year')
+    .description('run interval data through the board or installation: peaks and percentiles, hours over limits, energy and billing power factor by month, an automatic bank simulated over the year')
     .argument('<board>', 'board or installation file (YAML or JSON), or - for standard input')
     .option('--data <file>', 'interval data (CSV)')
     .option('--time-zone <name>', 'IANA time zone of times written without an offset, and of calendar months (default UTC)')
