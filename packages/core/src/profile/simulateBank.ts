@@ -98,7 +98,14 @@ export function switchBank(input: SwitchBankInput, prepare: (extraEdges: BatchEd
   const fixed = input.fixed ?? [];
   const layout = [...steps, ...fixed].map((s) => stepEdges(board, s.channel));
   const solver = prepare(layout.flat().map((x) => x.edge));
-  const stepSlots = layout.map((edges) => edges.map(({ edge, share }) => ({ e: solver.edgeIndex(edge), share })));
+  const stepSlots = layout.map((edges) =>
+    edges.map(({ edge, share }) => {
+      const e = solver.edgeIndex(edge);
+      // The solver was prepared with these edges; a miss would drop the step silently.
+      if (e < 0) throw new RangeError(`switchBank: the solver has no edge ${edge.from}-${edge.to} for a step`);
+      return { e, share };
+    }),
+  );
   const n = figures.count;
   const connectedKvar = new Float64Array(n);
   const controller = createBankController(steps, input.settings);

@@ -76,6 +76,8 @@ export interface InstallationProfileStudy {
   /** Per board (board number). */
   readonly before: readonly IntervalFigures[];
   readonly after: readonly IntervalFigures[] | null;
+  /** Switched kvar connected in each interval (nominal; the fixed part on top); null without a bank. */
+  readonly connectedKvar: Float64Array | null;
   readonly label: (i: number) => string;
 }
 
@@ -147,5 +149,5 @@ export function studyInstallationProfile(input: InstallationProfileInput, option
     bank: withBank ? { board: names[bankAt]!, ...withBank.bank } : null,
     cautions: PROFILE_CAUTIONS,
   };
-  return { result, utcMs: input.utcMs, before, after: afterFigures, label };
+  return { result, utcMs: input.utcMs, before, after: afterFigures, connectedKvar: withBank?.run.connectedKvar ?? null, label };
 }
