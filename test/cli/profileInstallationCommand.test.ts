@@ -101,6 +101,23 @@ describe('trivar profile on an installation', () => {
     expect(out.boards[0].after.energy.kvarhLagging).toBeLessThan(out.boards[0].before.energy.kvarhLagging);
   });
 
+  it('--correction-bank simulates the bank trivar correct designs on the board the correction section names', () => {
+    const file = join(dir, 'with-correction.yaml');
+    writeFileSync(file, `${readFileSync(`${ROOT}${FILE}`, 'utf8')}correction:\n  arrangement: star-bank\n  board: Pottery\n  target: { pf: 0.95 }\n`);
+    const designed = runTrivar(['correct', file, '--json']);
+    expect(designed.code).toBe(0);
+    const selection = JSON.parse(designed.stdout).report.selection;
+    const r = runTrivar(['profile', file, '--data', `${ROOT}${DATA}`, '--correction-bank', '--json']);
+    expect(r.stderr).toBe('');
+    expect(r.code).toBe(0);
+    const bank = JSON.parse(r.stdout).bank;
+    expect(bank.board).toBe('Pottery');
+    expect(bank.source).toBe('correction-study');
+    expect(bank.steps.map((s: { step: number }) => s.step)).toEqual(selection.steps.map((s: { output: number }) => s.output));
+    expect(runTrivar(['profile', file, '--data', `${ROOT}${DATA}`, '--correction-bank', '--pf', '0.9']).stderr).toContain('--pf sets the target');
+    expect(runTrivar(['profile', FILE, '--data', DATA, '--correction-bank']).stderr).toContain('no correction section naming an arrangement');
+  });
+
   it('refuses unknown and ambiguous load names, naming the column', () => {
     const bad = join(dir, 'bad.csv');
     writeFileSync(bad, 'time,Kiln [x],Pottery/Press [x]\n2026-03-10T00:00,1,1\n');

@@ -239,7 +239,7 @@ export function createProgram(io: CliIo, outcome: RunOutcome = { exitCode: EXIT.
     .option('--bank', 'simulate an automatic capacitor bank over the profile (profile.bank in the board file sets it up)')
     .option('--correction-bank', "simulate instead the bank trivar correct designs for this board: its steps, fixed part and controller settings (the board file's correction section)")
     .option('--pf <value>', 'target power factor of the bank (0 < pf <= 1; default 0.95)', numberIn(0, 1, 'a power factor above 0 and at most 1'))
-    .option('--board <name>', 'installation files: the board the bank goes on (default: the main board)')
+    .option('--board <name>', "installation files: the board the bank goes on (default: the main board, or the correction section's board with --correction-bank)")
     .option('--summary-csv <file>', 'write the summary as CSV')
     .option('--intervals-csv <file>', 'write per-interval results as CSV')
     .option('--charts <dir>', 'write SVG charts (currents, power factor, load duration) into this folder')

@@ -39,7 +39,7 @@ export interface InstallationProfileInput {
   readonly profile?: ProfileSpec;
 }
 
-export interface InstallationProfileOptions extends Pick<ProfileStudyOptions, 'timeZone' | 'bank' | 'targetPf' | 'onProgress'> {
+export interface InstallationProfileOptions extends Pick<ProfileStudyOptions, 'timeZone' | 'bank' | 'targetPf' | 'designedBank' | 'onProgress'> {
   /** The board the bank goes on (by name). @defaultValue the main board */
   readonly bankBoard?: string;
 }
