@@ -28,6 +28,7 @@ const CORRECTION = 'the board already meets the target: nothing to add';
 const CSV_READER = 'the interval data cannot be read';
 const BOARD_SCHEMA = 'the circuits on the board'; // a description in boardSchema.ts (zod)
 const YAML_READER = 'a second YAML document starts here'; // readBoardText.ts's wording of yaml's errors
+const HARMONIC_CORRECTION = 'The harmonic check below covers the spectra entered in the board file'; // correctWithHarmonics.ts
 
 describe('CLI chunks', () => {
   it('each command is a chunk of its own, loaded on demand', () => {
@@ -46,6 +47,14 @@ describe('CLI chunks', () => {
     expect(loadedText(chunkOf('solve'))).not.toMatch(/\bZodError\b/);
     expect(loadedText(chunkOf('schemaChecks'))).toContain(BOARD_SCHEMA);
     expect(readFileSync(DIST + chunkOf('solve'), 'utf8')).toContain(`import("./${chunkOf('schemaChecks')}")`);
+  });
+  it('correct loads no yaml and no harmonic study: both come on demand, for files that need them', () => {
+    expect(loadedText(chunkOf('correct'))).not.toContain(YAML_READER);
+    expect(loadedText(chunkOf('correct'))).not.toContain(HARMONIC_CORRECTION);
+    expect(loadedText(chunkOf('correctWithHarmonicData'))).toContain(HARMONIC_CORRECTION);
+    // (the command's code sits in a chunk it shares with `trivar report`)
+    expect(loadedText(chunkOf('correct'))).toContain(`import("./${chunkOf('yamlReading')}")`);
+    expect(loadedText(chunkOf('correct'))).toContain(`import("./${chunkOf('correctWithHarmonicData')}")`);
   });
   it('solve loads no yaml: JSON and plain YAML are read without it, yaml comes on demand', () => {
     expect(loadedText(chunkOf('solve'))).not.toContain(YAML_READER);

@@ -55,6 +55,19 @@ describe('trivar harmonics on an installation (built binary)', () => {
     expect(r.stdout).toContain('licensed professional');
   });
 
+  it('two banks: each scanned with every other bank on, then with the other banks switched, the state named under each row', () => {
+    const r = runTrivar(['harmonics', 'examples/ferrybank-joinery.yaml']);
+    expect(r.code).toBe(0);
+    expect(r.stdout).toContain('Resonance with the supply seen from Machine shop, every other bank fully on (S_sc');
+    const joint = r.stdout.slice(r.stdout.indexOf('Resonance seen from Machine shop with the other banks switched'), r.stdout.indexOf('Capacitor duty with harmonics, bank on Machine shop'));
+    // The full bank: 6.0 … 7.2 over the finishing shop's states, on the 7th with that bank off.
+    expect(joint).toMatch(/steps 1\+2\+3 +99\.2 +6\.0 … 7\.2 +7 +h 7\.01, 0\.1 % from 7\n +with Finishing shop bank off\n/);
+    expect(joint).toContain('other banks scanned at Finishing shop: off, step 1, steps 1+2');
+    // Warnings are wrapped to the report width: read them as one line each.
+    expect(r.stdout.replace(/\n {4}/g, ' ')).toContain('! Machine shop: Machine shop bank steps 1+2+3 with Finishing shop bank off: resonance with the supply at h ≈ 7.01, within ±10 % of order 7');
+    expect(r.stdout).toContain('other banks on and out of service');
+  });
+
   it('--board prints that board’s full figures; --all-boards every board’s', () => {
     const one = runTrivar(['harmonics', yard, '--board', 'Studios upper']);
     expect(one.code).toBe(0);

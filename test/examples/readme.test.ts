@@ -51,6 +51,14 @@ describe('README', () => {
     const shown = block.replace(/^\s*```text\n/, '').replace(/```\s*$/, '');
     expect(shown.trimEnd()).toBe(runTrivar(['harmonics', 'examples/harrow-yard-studios.yaml']).stdout.trimEnd());
   });
+  it('joint scan excerpt: each of its paragraphs is in `trivar harmonics examples/ferrybank-joinery.yaml` as shown', () => {
+    const block = readme.split('<!-- harmonics-joint-excerpt:start -->')[1]!.split('<!-- harmonics-joint-excerpt:end -->')[0]!;
+    const shown = block.replace(/^\s*```text\n/, '').replace(/```\s*$/, '').trimEnd();
+    const output = runTrivar(['harmonics', 'examples/ferrybank-joinery.yaml']).stdout;
+    const paragraphs = shown.split('\n\n');
+    expect(paragraphs.length).toBeGreaterThanOrEqual(3);
+    for (const p of paragraphs) expect(output).toContain(p);
+  });
   it('detuned correction output block matches `trivar correct examples/quayside-print-works.yaml`', () => {
     const block = readme.split('<!-- correct-detuned-output:start -->')[1]!.split('<!-- correct-detuned-output:end -->')[0]!;
     const shown = block.replace(/^\s*```text\n/, '').replace(/```\s*$/, '');

@@ -5,7 +5,9 @@
  * ngspiceInstallation.ts) with 1 A driven between the two terminals — the supply, every feeder
  * and every other board's loads in the path. Cases: Harrow Yard (a delta bank on a sub-board) and
  * an installation whose transformer has a zero-sequence impedance with a star bank on a sub-board
- * (the scan follows the file's earthing of the star point). 1e-6 relative.
+ * (the scan follows the file's earthing of the star point); and Ferrybank joinery (two banks on two
+ * boards) in a mixed state — one step of the machine shop's bank with the finishing shop's bank at
+ * its first step — as the joint scan sets it (impedancesIn). 1e-6 relative.
  * Worst figures go to test/harmonics/.ngspice-installation-scan.json. Skipped without ngspice unless CI=true.
  */
 import { mkdtempSync, readFileSync, rmSync } from 'node:fs';
@@ -100,5 +102,48 @@ describe.skipIf(!ngspice && !mustRun)(`installation scan against ngspice (${ngsp
       });
       figures.note(`scan points compared (${name})`, compared);
     });
+  });
+
+  it('Ferrybank joinery, a mixed state of two banks: machine shop step 1, finishing shop step 1', () => {
+    const { installation, models, bankBoards } = resolveInstallationHarmonics(parseInstallation(example('ferrybank-joinery.yaml')));
+    const fundamental = solveInstallationNetwork(installation);
+    const b = bankBoards[0]!;
+    const evaluator = createInstallationScanEvaluator(fundamental, models, b);
+    expect(evaluator.banks.map((x) => x.board)).toEqual([...bankBoards].sort((x, y) => x - y));
+    // Every bank at its first step only; the omitted parts are every other step of every bank.
+    const states = evaluator.banks.map((bank) => ({ steps: Array.from({ length: bank.stepCount }, (_, k) => k === 0), fixedOn: true }));
+    const omit = new Set(evaluator.banks.flatMap((bank) => models[bank.board]!.bank!.stepLoads.filter((_, k) => k > 0).map((l) => `${bank.board}:${l}`)));
+    const grid = scanGrid(25, 0.25);
+    const f = installation.main.frequencyHz;
+    const zeros = installation.main.emf.map(() => ({ re: 0, im: 0 }));
+    const out = new Float64Array(evaluator.pairs.length);
+    let compared = 0;
+    evaluator.pairs.forEach(([p, q], k) => {
+      const node = (t: string) => (t === 'N' ? `b${b}_n` : `b${b}_${t.toLowerCase()}`);
+      const { netlist } = buildInstallationNetlist(installation, fundamental, { order: 0, emf: zeros, fundamental, models, drive: { board: b, into: p, from: q }, omit });
+      const vectors = [`v(${node(p)})`, `v(${node(q)})`];
+      const sweep = runAcSweep(netlist, { startHz: grid[0]! * f, stopHz: grid.at(-1)! * f, points: grid.length }, vectors, dir, `mixed-${k}`);
+      grid.forEach((h, i) => {
+        evaluator.prepare(h);
+        evaluator.impedancesIn(states, out, 0);
+        const spice = cAbs(cSub(sweep.values.get(vectors[0]!)![i]!, sweep.values.get(vectors[1]!)![i]!));
+        const error = Math.abs(out[k]! - spice) / spice;
+        figures.note('scan |Z| relative', error, `Ferrybank mixed state, ${p}-${q}, h ${h}`);
+        expect(error, `${p}-${q} at h = ${h}: core ${out[k]}, ngspice ${spice}`).toBeLessThan(REL);
+        compared++;
+      });
+    });
+    figures.note('scan points compared (Ferrybank mixed state)', compared);
+    // The state matters: with every bank on, |Z| differs by far more than the tolerance somewhere.
+    const allOn = new Float64Array(evaluator.pairs.length);
+    const largest = Math.max(
+      ...grid.map((h) => {
+        evaluator.prepare(h);
+        evaluator.impedancesIn(states, out, 0);
+        evaluator.impedancesIn(evaluator.banks.map((bank) => ({ steps: Array.from({ length: bank.stepCount }, () => true), fixedOn: true })), allOn, 0);
+        return Math.abs(out[0]! - allOn[0]!) / allOn[0]!;
+      }),
+    );
+    expect(largest).toBeGreaterThan(0.1);
   });
 });

@@ -15,9 +15,18 @@
  * electrical-design-tutor.com "Conductor Resistance" (NEC 2011 Table 8, the stranded rows).
  * Temperature: the Table 8 note's R2 = R1(1 + α(T2 − 75)), α = 0.00323 Cu, 0.00330 Al,
  * checked against the formula itself; IEC 60228 Annex B's factor at 70 °C (0.833) as above.
+ * NEC Chapter 9 Table 9 (600 V, three single conductors in conduit, 60 Hz), "XL (reactance) for all
+ * wires", PVC/aluminium-conduit column, Ω/kft, as reproduced at sfasoft.com "A.C. for 600 Volt" and
+ * studylib.net "AC Resistance and Reactance" (NEC Table 9; every size), and brunsengineering.com
+ * "NEC Table 9" (14 AWG–350 kcmil); its Ω/km column for 14 AWG–1/0 as reproduced on scribd
+ * ("Table 9 Alternating-Current Resistance and Reactance", NEC 2008). All agree on every value below.
+ * mm² reactance: the per-conductor formula X = 0.0628·ln(2s/(a·d)) mΩ/m at 50 Hz for multicore cable
+ * (IET Guidance Note, "Calculation of Reactance" appendix, as reproduced at 1library.net; coefficient
+ * a for 7-, 19- and 37-wire conductors 0.724, 0.758, 0.768 from the same page); the conductor
+ * diameters and insulation thicknesses used with it are typical values, from memory.
  */
 import { describe, expect, it } from 'vitest';
-import { conductorResistance, solveInstallation } from '@trivar/core';
+import { conductorReactance, conductorResistance, DEFAULT_CABLE_REACTANCE_OHM_PER_KM, solveInstallation } from '@trivar/core';
 
 const kft = 1000 / 0.3048 / 1000; // Ω/kft → Ω/km
 
@@ -38,6 +47,63 @@ const NEC_TABLE_8: readonly [{ awg: string } | { kcmil: number }, number, number
   [{ kcmil: 400 }, 0.0321, 0.0529], [{ kcmil: 500 }, 0.0258, 0.0424], [{ kcmil: 600 }, 0.0214, 0.0353], [{ kcmil: 700 }, 0.0184, 0.0303],
   [{ kcmil: 750 }, 0.0171, 0.0282], [{ kcmil: 800 }, 0.0161, 0.0265], [{ kcmil: 900 }, 0.0143, 0.0235], [{ kcmil: 1000 }, 0.0129, 0.0212],
 ];
+
+/** NEC Chapter 9 Table 9, XL for all wires, Ω/kft at 60 Hz: [size, PVC/Al conduit, steel conduit (not used: the library takes PVC)]. */
+const NEC_TABLE_9_XL: readonly [{ awg: string } | { kcmil: number }, number, number][] = [
+  [{ awg: '14' }, 0.058, 0.073], [{ awg: '12' }, 0.054, 0.068], [{ awg: '10' }, 0.05, 0.063], [{ awg: '8' }, 0.052, 0.065],
+  [{ awg: '6' }, 0.051, 0.064], [{ awg: '4' }, 0.048, 0.06], [{ awg: '3' }, 0.047, 0.059], [{ awg: '2' }, 0.045, 0.057],
+  [{ awg: '1' }, 0.046, 0.057], [{ awg: '1/0' }, 0.044, 0.055], [{ awg: '2/0' }, 0.043, 0.054], [{ awg: '3/0' }, 0.042, 0.052],
+  [{ awg: '4/0' }, 0.041, 0.051], [{ kcmil: 250 }, 0.041, 0.052], [{ kcmil: 300 }, 0.041, 0.051], [{ kcmil: 350 }, 0.04, 0.05],
+  [{ kcmil: 400 }, 0.04, 0.049], [{ kcmil: 500 }, 0.039, 0.048], [{ kcmil: 600 }, 0.039, 0.048], [{ kcmil: 750 }, 0.038, 0.048],
+  [{ kcmil: 1000 }, 0.037, 0.046],
+];
+/** Table 9's own Ω/km column, PVC/Al conduit, 14 AWG–1/0 (scribd reproduction). */
+const NEC_TABLE_9_XL_PER_KM: readonly [string, number][] = [
+  ['14', 0.19], ['12', 0.177], ['10', 0.164], ['8', 0.171], ['6', 0.167], ['4', 0.157], ['3', 0.154], ['2', 0.148], ['1', 0.151], ['1/0', 0.144],
+];
+
+describe('cable reactance', () => {
+  it.each(NEC_TABLE_9_XL)('NEC Table 9, %o: XL %s Ω/kft in PVC/aluminium conduit at 60 Hz', (size, pvc, steel) => {
+    const x = conductorReactance(size, 60)!;
+    expect(x.ohmPerKm).toBeCloseTo(pvc * kft, 12);
+    expect(x.source).toContain('Table 9');
+    // The steel-conduit column is the higher one; the library states which it takes.
+    expect(steel).toBeGreaterThan(pvc);
+  });
+  it.each(NEC_TABLE_9_XL_PER_KM)("NEC Table 9's Ω/km column, %s AWG: %s Ω/km, within the rounding of the two columns", (awg, perKm) => {
+    // Each column rounded to 0.001 of its own unit: they may differ by 0.0005·kft + 0.0005 Ω/km.
+    expect(Math.abs(conductorReactance({ awg }, 60)!.ohmPerKm - perKm)).toBeLessThanOrEqual(0.0005 * kft + 0.0005);
+  });
+  it('700, 800 and 900 kcmil (not in Table 9) lie on the line between the neighbouring rows', () => {
+    expect(conductorReactance({ kcmil: 700 }, 60)!.ohmPerKm).toBeCloseTo((0.039 + (0.038 - 0.039) * (100 / 150)) * kft, 12);
+    expect(conductorReactance({ kcmil: 800 }, 60)!.ohmPerKm).toBeCloseTo((0.038 + (0.037 - 0.038) * (50 / 250)) * kft, 12);
+    expect(conductorReactance({ kcmil: 900 }, 60)!.source).toContain('interpolated');
+  });
+  it('scales with frequency: Table 9 at 50 Hz is 5/6 of its 60 Hz value, the mm² default at 60 Hz 6/5 of 0.08', () => {
+    expect(conductorReactance({ awg: '2' }, 50)!.ohmPerKm).toBeCloseTo((0.045 * kft * 5) / 6, 12);
+    expect(conductorReactance({ mm2: 95 }, 50)!.ohmPerKm).toBe(DEFAULT_CABLE_REACTANCE_OHM_PER_KM);
+    expect(conductorReactance({ mm2: 95 }, 60)!.ohmPerKm).toBeCloseTo(0.096, 12);
+  });
+  it('the AWG reactances lie in 0.12–0.19 Ω/km at 60 Hz, above the old flat 0.08', () => {
+    for (const [size] of NEC_TABLE_9_XL) {
+      const x = conductorReactance(size, 60)!.ohmPerKm;
+      expect(x).toBeGreaterThan(0.12);
+      expect(x).toBeLessThan(0.191);
+    }
+  });
+  it.each([
+    // [what, conductor diameter d mm, insulation mm, coefficient a] — typical dimensions, from memory.
+    ['2.5 mm² PVC, 7 wires', 2.0, 0.8, 0.724, 0.1],
+    ['95 mm² XLPE, 19 wires', 11.4, 1.1, 0.758, 0.072],
+    ['240 mm² XLPE, 37 wires', 18.2, 1.7, 0.768, 0.071],
+  ] as const)('the mm² default (0.08 Ω/km at 50 Hz) against the reactance formula for %s', (_, d, insulation, a, expected) => {
+    // Touching cores: axial separation s = d + 2 × insulation.
+    const x = 0.0628 * Math.log((2 * (d + 2 * insulation)) / (a * d));
+    expect(x).toBeCloseTo(expected, 2);
+    // The default is within 25 % of every one of them.
+    expect(Math.abs(DEFAULT_CABLE_REACTANCE_OHM_PER_KM - x) / x).toBeLessThan(0.25);
+  });
+});
 
 describe('cable library against the published tables', () => {
   it.each(IEC_60228_TABLE_2)('IEC 60228 class 2, %f mm²: Cu %s, Al %s Ω/km at 20 °C', (mm2, cu, al) => {
@@ -98,5 +164,23 @@ describe('cable library against the published tables', () => {
     expect(result.feeders[1]!.lines[0]!.current.magnitude).toBeCloseTo(current, 9);
     expect(result.feeders[1]!.lossesKW * 1000).toBeCloseTo(current * current * 0.524 * 0.05 * 1.5, 6);
     expect(result.feeders[1]!.description).toBe('35 mm² Cu, 50 m at 20 °C; neutral 35 mm² Cu ×2, 50 m at 20 °C');
+  });
+  it('an AWG feeder on a 60 Hz board carries Table 8 resistance and Table 9 reactance times length', () => {
+    const result = solveInstallation({
+      supply: { system: 'three-phase-4wire', voltage: { lineToNeutral: 120 }, frequencyHz: 60 },
+      boards: [
+        { name: 'Main', loads: [] },
+        {
+          name: 'Shop',
+          fedFrom: 'Main',
+          feeder: { lengthFt: 200, line: { awg: '1/0' }, neutral: { awg: '1/0' } },
+          loads: [{ name: 'heater', connection: 'A-N', ohms: { r: 2, x: 0 } }],
+        },
+      ],
+    });
+    // Line and neutral in series: 2 × 0.2 kft × (0.122 Ω/kft at 75 °C + j0.044 Ω/kft).
+    const r = 2 + 2 * 0.2 * 0.122;
+    const x = 2 * 0.2 * 0.044;
+    expect(result.feeders[1]!.lines[0]!.current.magnitude).toBeCloseTo(120 / Math.hypot(r, x), 9);
   });
 });

@@ -153,3 +153,38 @@ describe('installation report with the harmonic study', () => {
     expect(ids.slice(at - 1, at + 6)).toEqual(['correction', 'harmonics', ...boardIds.map((b) => `${b}-harmonics`), 'correction-effect']);
   });
 });
+
+describe('installation report with two banks: the scan with the other banks switched', () => {
+  const FERRYBANK = readBoardText(readFileSync(new URL('../../examples/ferrybank-joinery.yaml', import.meta.url), 'utf8')) as Record<string, unknown>;
+  const { doc, harmonics } = reportOf(FERRYBANK);
+
+  it('each bank’s board shows the scan with every other bank on, then a row per state over the other banks’ states', () => {
+    for (const s of harmonics.scans) {
+      const id = `board-${s.board.toLowerCase().replace(/ /g, '-')}-harmonics`;
+      table(section(doc, id), new RegExp(`^Resonance with the supply seen from ${s.board}, every other bank fully on`));
+      const joint = table(section(doc, id), new RegExp(`^Resonance seen from ${s.board} with the other banks switched`));
+      const j = s.jointScan!;
+      expect(joint.rows).toHaveLength(j.combinations.length);
+      joint.rows.forEach((row, k) => {
+        const c = j.combinations[k]!;
+        expect(row[0]).toBe(c.label);
+        expect(row[2]).toBe(`${r1(c.lowestPeak!.order)} … ${r1(c.highestPeak!.order)}`);
+        expect(row[3]).toContain(`h ${c.nearest!.order.toFixed(2)}`);
+        expect(row[4]).toBe(c.nearest!.otherBanks);
+        expect(row[5]).toBe(c.nearOrders.map((n) => n.order).join(', ') || '—');
+      });
+      expect(joint.note).toMatch(/other banks scanned at .*every level a controller steps each through, combined; \d+ networks/);
+    }
+    // The machine shop's full bank is clear of the 7th with the finishing shop's on, on it with that bank off.
+    const machine = harmonics.scans.find((s) => s.board === 'Machine shop')!;
+    const full = machine.jointScan!.combinations.find((c) => c.label === 'steps 1+2+3')!;
+    expect(machine.scan.combinations.find((c) => c.label === 'steps 1+2+3')!.nearOrders).not.toContain(7);
+    expect(full.nearOrders.find((n) => n.order === 7)!.peak.otherBanks).toBe('Finishing shop bank off');
+    expect(lists(section(doc, 'harmonics'), 'warning')).toContainEqual(expect.stringMatching(/^Machine shop: Machine shop bank steps 1\+2\+3 with Finishing shop bank off: resonance with the supply at h ≈ 7\.0\d, within ±10 % of order 7/));
+  });
+
+  it('the duty says it was checked with the other banks on and out of service', () => {
+    const f = facts(section(doc, 'board-machine-shop-harmonics'));
+    expect(f.get('Worst state')).toMatch(/other banks on and out of service\)$/);
+  });
+});

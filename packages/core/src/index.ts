@@ -25,7 +25,8 @@ export type {
 export { PHYSICAL_RANGES } from './board/boardSchema.js';
 export { boardSchema } from './boardFile/boardFileSchema.js';
 export type { BoardValidation } from './boardFile/validateBoard.js';
-export { validateBoard, parseBoard, parseBoardText } from './boardFile/validateBoard.js';
+export { validateBoard, parseBoard } from './boardFile/validateBoard.js';
+export { parseBoardText } from './boardFile/parseBoardText.js';
 export { readWellFormedBoard } from './boardFile/boardFileRules.js';
 export { readBoardText } from './board/readBoardText.js';
 export { readPlainBoardText, BOARD_TEXT_LIMITS } from './board/boardText.js';
@@ -44,7 +45,7 @@ export { isInstallationInput } from './board/installationInput.js';
 export { normaliseInstallation } from './board/normaliseInstallation.js';
 export type { FeederSpec, PerPhaseConductorSpec, WindingSpec } from './board/boardSchema.js';
 export type { ConductorMaterial, ConductorSize, ConductorResistance } from './board/cableLibrary.js';
-export { conductorResistance, DEFAULT_CABLE_REACTANCE_OHM_PER_KM, DEFAULT_CONDUCTOR_TEMPERATURE_C } from './board/cableLibrary.js';
+export { conductorReactance, conductorResistance, DEFAULT_CABLE_REACTANCE_OHM_PER_KM, DEFAULT_CONDUCTOR_TEMPERATURE_C } from './board/cableLibrary.js';
 export { installationOf, boardOfInstallation } from './network/installationModel.js';
 export type { InstallationSolution, CompiledInstallation } from './network/solveNetwork.js';
 export { compileInstallation, solveCompiledInstallation, solveInstallationNetwork } from './network/solveNetwork.js';
@@ -186,19 +187,22 @@ export { solveInstallationAtOrder, installationAtOrder } from './harmonics/insta
 export { createInstallationScanEvaluator } from './harmonics/scanEvaluator.js';
 export type { FixedInstallationInput } from './network/solveFixedInstallation.js';
 export { solveFixedInstallation } from './network/solveFixedInstallation.js';
-export type { ScanEvaluator } from './harmonics/scanEvaluator.js';
-export { scanResonance, createScanEvaluator, scanGrid, stepCombinations } from './harmonics/scanResonance.js';
+export type { ScanEvaluator, ScanBank, BankState } from './harmonics/scanEvaluator.js';
+export type { JointScanOptions, NetworkState } from './harmonics/scanJointResonance.js';
+export { scanJointResonance, scanNetworkStates, controllerLevels } from './harmonics/scanJointResonance.js';
+export { scanResonance, createScanEvaluator, scanGrid, stepCombinations, roundForPlot, shortCircuitVA } from './harmonics/scanResonance.js';
 export { DUTY_LIMITS, dutyFigures } from './harmonics/capacitorDuty.js';
-export { dutyConditions, withCapacitanceFactor, withLoadsOff, conditionWords } from './harmonics/dutyConditions.js';
+export { dutyConditions, withCapacitanceFactor, withLoadsOff, withOtherBanksOff, conditionWords } from './harmonics/dutyConditions.js';
 export { tuningOrder, capacitorVoltage, detunedOutputKvar, detunedSusceptance, DETUNING_FACTORS_PERCENT } from './harmonics/detuning.js';
 export { ieee519OrderLimit, ieee519Row } from './harmonics/ieee519.js';
 export { HARMONICS_DEFAULTS } from './harmonics/harmonicsDefaults.js';
-export { HARMONICS_CAUTIONS } from './harmonics/harmonicsWording.js';
+export { HARMONICS_CAUTIONS, jointCoverageWords, nearestWords } from './harmonics/harmonicsWording.js';
 export type { FixedNetworkInput } from './network/solveFixedNetwork.js';
 export { solveFixedNetwork } from './network/solveFixedNetwork.js';
 export type { NodalMatrix } from './network/terminalImpedance.js';
 export type { CorrectionVariant, CorrectionHarmonics, HarmonicCorrectionReport, ArrangementHarmonics, HarmonicComparison } from './harmonics/correctWithHarmonics.js';
-export { correctWithHarmonics, compareWithHarmonics, boardHasHarmonicData, bankOfReport } from './harmonics/correctWithHarmonics.js';
+export { correctWithHarmonics, compareWithHarmonics, bankOfReport } from './harmonics/correctWithHarmonics.js';
+export { boardHasHarmonicData } from './harmonics/boardHasHarmonicData.js';
 
 // Rebalancing (which circuits to move to which phase)
 export type { RebalanceSpec, AimSpec, AimFigure, LoadConditionSpec, PinSpec } from './rebalance/rebalanceSpec.js';

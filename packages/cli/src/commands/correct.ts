@@ -1,9 +1,8 @@
 /** `trivar correct`: size, choose and verify power-factor correction for a board. */
-import { boardOfInstallation, meteringPointIssues, boardHasHarmonicData, compareCorrections, compareInstallationCorrections, compareWithHarmonics, correctBoard, correctInstallation, correctWithHarmonics, InputError, installationBoardIndex, isInstallationInput, normaliseBoard, normaliseInstallation, parseBoard, parseInstallation, readBoardText, type CorrectionComparison, type CorrectionReport, type HarmonicComparison, type HarmonicCorrectionReport } from '@trivar/core';
+import { boardOfInstallation, meteringPointIssues, boardHasHarmonicData, compareCorrections, compareInstallationCorrections, correctBoard, correctInstallation, InputError, installationBoardIndex, isInstallationInput, normaliseBoard, normaliseInstallation, parseBoard, parseInstallation, readPlainBoardText, type CorrectionComparison, type CorrectionReport } from '@trivar/core';
 import type { CliIo } from '../io.js';
 import { writeResult } from '../writeResult.js';
 import { renderCorrectionReport } from '../format/correctionReport.js';
-import { renderComparisonHarmonics, renderCorrectionHarmonics } from '../format/correctionHarmonicsReport.js';
 import { renderComparisonReport } from '../format/comparisonReport.js';
 import { renderInstallationComparison, renderInstallationCorrection } from '../format/installationCorrectionReport.js';
 
@@ -98,7 +97,9 @@ function runCorrectInstallation(input: unknown, options: CorrectCommandOptions, 
 }
 
 export async function runCorrect(file: string, options: CorrectCommandOptions, io: CliIo): Promise<CorrectOutcome> {
-  const input = readBoardText(await io.readSource(file, options.maxInputMb === undefined ? {} : { maxInputMB: options.maxInputMb }));
+  const text = await io.readSource(file, options.maxInputMb === undefined ? {} : { maxInputMB: options.maxInputMb });
+  // JSON and plain YAML are read without yaml (the same data); only other YAML loads it (and words any syntax error).
+  const input = readPlainBoardText(text) ?? (await import('./yamlReading.js')).readBoardText(text);
   if (isInstallationInput(input)) return runCorrectInstallation(input, options, io);
   if (options.board !== undefined)
     throw new InputError(
@@ -117,9 +118,8 @@ export async function runCorrect(file: string, options: CorrectCommandOptions, i
     // Without an arrangement (file or option) every arrangement that fits the board is compared.
     if (study.arrangement === undefined) {
       if (boardHasHarmonicData(spec)) {
-        const comparison = compareWithHarmonics(spec, board, study);
-        writeResult(io, comparison, options.json, (c: HarmonicComparison) => renderComparisonReport(c) + renderComparisonHarmonics(c.harmonics));
-        return { kind: 'comparison', comparison };
+        const { writeComparisonWithHarmonics } = await import('./correctWithHarmonicData.js');
+        return { kind: 'comparison', comparison: writeComparisonWithHarmonics(spec, board, study, options.json, io) };
       }
       const comparison = compareCorrections(board, study);
       writeResult(io, comparison, options.json, renderComparisonReport);
@@ -128,9 +128,8 @@ export async function runCorrect(file: string, options: CorrectCommandOptions, i
     // A board file with harmonic data (spectra, a harmonics: section) gets the harmonic check
     // of the bank, with detuned variants beside the plain one.
     if (boardHasHarmonicData(spec)) {
-      const checked = correctWithHarmonics(spec, board, study);
-      writeResult(io, checked, options.json, (r: HarmonicCorrectionReport) => renderCorrectionReport(r) + renderCorrectionHarmonics(r.harmonics));
-      return { kind: 'single', report: checked };
+      const { writeCorrectionWithHarmonics } = await import('./correctWithHarmonicData.js');
+      return { kind: 'single', report: writeCorrectionWithHarmonics(spec, board, study, options.json, io) };
     }
     const report = correctBoard(board, study);
     writeResult(io, report, options.json, renderCorrectionReport);

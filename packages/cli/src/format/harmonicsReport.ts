@@ -99,16 +99,21 @@ function fitOrdersColumn(columns: Parameters<typeof renderTable>[0], rows: strin
 }
 
 
-/** Bank states with the same output resonate alike: one row per output, listing the states. */
-export function scanTable(s: ResonanceScan, label: Label): string {
-  const groups = new Map<string, { labels: string[]; c: ResonanceScan['combinations'][number] }>();
-  for (const c of s.combinations) {
+/** Bank states with the same output, in first-seen order: each with its labels and its first state. */
+export function alikeStates<C extends { readonly capacitorKvar: number; readonly label: string }>(combinations: readonly C[]): { labels: string[]; c: C }[] {
+  const groups = new Map<string, { labels: string[]; c: C }>();
+  for (const c of combinations) {
     const key = fixed(c.capacitorKvar, 2);
     const g = groups.get(key);
     if (g) g.labels.push(c.label);
     else groups.set(key, { labels: [c.label], c });
   }
-  const rows = [...groups.values()].map(({ labels, c }) => {
+  return [...groups.values()];
+}
+
+/** Bank states with the same output resonate alike: one row per output, listing the states. */
+export function scanTable(s: ResonanceScan, label: Label): string {
+  const rows = alikeStates(s.combinations).map(({ labels, c }) => {
     const orders = [...new Set(c.peaks.map((p) => fixed(p.order, 1)))];
     const main = c.peaks.length ? c.peaks.reduce((a, b) => (b.impedanceOhm > a.impedanceOhm ? b : a)) : null;
     return [
@@ -148,7 +153,7 @@ export function dutyLines(d: CapacitorDuty, label: Label): string[] {
       ],
     ),
     prose(
-      `design = nominal capacitance, loads as given; worst of every state at capacitance −${d.capacitanceTolerance.minusPercent} % / nominal / +${d.capacitanceTolerance.plusPercent} %, loads as given and all off: ${d.worst.label}, ${conditionWords(d.worst.condition)}`,
+      `design = nominal capacitance, loads as given${d.conditions.some((c) => c.otherBanks) ? ', other banks on' : ''}; worst of every state at capacitance −${d.capacitanceTolerance.minusPercent} % / nominal / +${d.capacitanceTolerance.plusPercent} %, loads as given and all off${d.conditions.some((c) => c.otherBanks) ? ', other banks on and out of service' : ''}: ${d.worst.label}, ${conditionWords(d.worst.condition)}`,
     ),
     prose(`highest fundamental voltage across a capacitor: ${fixed(d.highestCapacitorVoltageV, 1)} V (${fixed(d.highestCapacitorVoltageV / d.ratedV, 3)} × rated)`),
     prose(`limits: ${d.limitsSource}`),

@@ -3,11 +3,11 @@
  * summary row per board (busbar distortion, incoming feeder, its neutral), the supply's IEEE 519
  * check, the scan and duty of each bank, then the full figures of the boards asked for.
  */
-import type { BoardHarmonics, InstallationHarmonicsReport } from '@trivar/core';
-import { fixed, renderTableWithin, section } from './textTable.js';
+import { jointCoverageWords, nearestWords, type BoardHarmonics, type InstallationHarmonicsReport, type JointScan } from '@trivar/core';
+import { fixed, renderTable, renderTableWithin, section } from './textTable.js';
 import { wrapText } from './wrapText.js';
 import { treeName } from './boardTree.js';
-import { currentTable, dutyLines, labeller, neutralLines, prose, resonanceTitle, scanLine, scanTable, spectraLines, tddLines, voltageTable } from './harmonicsReport.js';
+import { alikeStates, currentTable, dutyLines, labeller, neutralLines, prose, resonanceTitle, scanLine, scanTable, spectraLines, tddLines, voltageTable } from './harmonicsReport.js';
 
 
 /** The busbar voltage with the highest THD: its label and THD. */
@@ -50,6 +50,34 @@ function boardTable(r: InstallationHarmonicsReport): string {
 
 const note = (text: string) => wrapText(text, '  (', '   ');
 
+/**
+ * The scan with the other banks switched: bank states alike in output on one row, as in the scan
+ * table; under each row, the other banks' state of its nearest approach to a checked order.
+ */
+function jointScanTable(joint: JointScan): string {
+  const list = alikeStates(joint.combinations);
+  const rows = list.map(({ labels, c }) => [
+    labels.length > 2 ? `${labels[0]} (+${labels.length - 1} alike)` : labels.join(', '),
+    fixed(c.capacitorKvar, 1),
+    c.lowestPeak && c.highestPeak ? `${fixed(c.lowestPeak.order, 1)} … ${fixed(c.highestPeak.order, 1)}` : 'none',
+    c.nearOrders.map((n) => n.order).join(', ') || '-',
+    c.nearest ? nearestWords(c.nearest) : '-',
+  ]);
+  const [head, rule, ...body] = renderTable(
+    [
+      { header: 'bank state', align: 'left' },
+      { header: 'kvar on' },
+      { header: 'peaks (h)', align: 'left' },
+      { header: 'near orders', align: 'left' },
+      { header: 'nearest a checked order', align: 'left' },
+    ],
+    rows,
+  ).split('\n');
+  const at = head!.indexOf('nearest');
+  const indent = ' '.repeat(at);
+  return [head!, rule!, ...body.flatMap((line, k) => (list[k]!.c.nearest ? [line, wrapText(`with ${list[k]!.c.nearest!.otherBanks}`, indent, `${indent}  `)] : [line]))].join('\n');
+}
+
 export interface InstallationHarmonicsReportOptions {
   /** Boards whose full figures follow the summary. */
   readonly detailed: readonly string[];
@@ -72,9 +100,14 @@ export function renderInstallationHarmonicsReport(r: InstallationHarmonicsReport
     out.push(...tddLines(r.tdd, label));
   }
   for (const s of r.scans) {
-    out.push(section(resonanceTitle(s.scan, ` seen from ${s.board}`)));
+    out.push(section(resonanceTitle(s.scan, ` seen from ${s.board}${s.jointScan ? ', every other bank fully on' : ''}`)));
     out.push(scanTable(s.scan, label));
     out.push(scanLine(s.scan, label));
+    if (s.jointScan) {
+      out.push(section(`Resonance seen from ${s.board} with the other banks switched (peaks over all their states)`));
+      out.push(jointScanTable(s.jointScan));
+      out.push(prose(jointCoverageWords(s.jointScan)));
+    }
     if (s.capacitorDuty) {
       out.push(section(`Capacitor duty with harmonics, bank on ${s.board} (every bank state)`));
       out.push(...dutyLines(s.capacitorDuty, label));

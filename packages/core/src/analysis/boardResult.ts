@@ -86,6 +86,8 @@ export interface LoadReading extends PowerReading {
   readonly breakerA: number | null;
   /** Breaker poles from the file (checked against the connection); null when not given. */
   readonly poles: 1 | 2 | 3 | null;
+  /** Whether the load is taken to run for 3 h or more (the file's `continuous`, default true): on a North-American board its breaker is judged at 80 %. */
+  readonly continuous: boolean;
   readonly energised: boolean;
   /** Present when the board file gave kW without pf: pf 1 (resistive) was taken. */
   readonly pfAssumed?: true;

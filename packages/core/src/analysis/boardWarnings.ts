@@ -6,12 +6,22 @@ import type { BoardWarning, NeutralReading, PhaseReading, LoadReading, Transform
 import { regionWords } from '../board/conventions/regionWords.js';
 import { boardVoltagePoints } from './voltageCheck.js';
 import { bandWords, judgeVoltage, presetLimits, type VoltageLimits } from '../board/conventions/voltageLimits.js';
+import type { Region } from '../board/conventions/region.js';
 
 export const WARNING_THRESHOLDS = {
   /** Voltage unbalance factor above which supply-quality standards start to object (EN 50160, IEC 61000-2-2: 2 %). */
   voltageUnbalancePercent: 2,
   /** Supply band of the open-neutral study's flags: ±10 % of nominal (EN 50160 LV band). Board voltages follow the board's `conventions.voltageLimits`. */
   voltageBandPercent: 10,
+  /**
+   * Share of its breaker rating a continuous load (3 h or more, NEC Article 100) may draw on a
+   * North-American board: NEC 210.20(A) sizes the breaker at no less than the noncontinuous load plus
+   * 125 % of the continuous load, i.e. 80 % loading, unless the assembly is listed for 100 % operation
+   * (confirmed secondary: a manufacturer's data bulletin quoting 210.20(A) and its exception;
+   * 210.19(A)(1) the same for the conductors). IEC practice judges the design current against the
+   * device's rated current, I_B ≤ I_n (IEC 60364-4-43, 433.1; from memory): 100 %.
+   */
+  continuousBreakerShare: 0.8,
 } as const;
 
 const fmt = (x: number, digits = 1) => x.toFixed(digits);
@@ -34,6 +44,8 @@ export function boardWarnings(input: {
   /** Board voltages judged against the limits: line-to-line on a board without a neutral. */
   readonly lineToLine?: readonly LineToLineReading[];
   readonly hasNeutral?: boolean;
+  /** The board's region: North America judges continuous loads at 80 % of their breaker; default IEC (100 %). */
+  readonly region?: Region;
 }): BoardWarning[] {
   const out: BoardWarning[] = [];
   const { phases, neutral, unbalance, loads, lineRatingA } = input;
@@ -95,15 +107,27 @@ export function boardWarnings(input: {
           threshold: limitOf(side),
         });
     }
-  // A circuit drawing more than its own breaker's rating: the schedule would show the two side by side.
-  for (const load of loads)
-    if (load.breakerA !== null && load.energised && load.currentA > load.breakerA)
+  // A circuit drawing more than its breaker allows: the schedule would show the two side by side.
+  for (const load of loads) {
+    if (load.breakerA === null || !load.energised) continue;
+    const rating = +load.breakerA.toFixed(1);
+    const rule = breakerRule(input.region ?? 'iec', load.continuous);
+    const allowed = load.breakerA * rule.share;
+    if (load.currentA > load.breakerA)
       out.push({
         code: 'circuit-over-breaker',
-        message: `circuit "${load.name}" draws ${fmt(load.currentA)} A, above its ${+load.breakerA.toFixed(1)} A breaker: sustained, it would trip the breaker; check the load and the rating in the file`,
+        message: `circuit "${load.name}" draws ${fmt(load.currentA)} A, above its ${rating} A breaker (${rule.words}): sustained, it would trip the breaker; check the load and the rating in the file`,
         value: load.currentA,
         threshold: load.breakerA,
       });
+    else if (load.currentA > allowed)
+      out.push({
+        code: 'continuous-load-over-breaker-share',
+        message: `circuit "${load.name}" draws ${fmt(load.currentA)} A, above ${fmt(allowed)} A, ${fmt(rule.share * 100, 0)} % of its ${rating} A breaker (${rule.words}): give it a larger breaker and conductors, or mark it continuous: false if it never runs 3 h at a time`,
+        value: load.currentA,
+        threshold: allowed,
+      });
+  }
   for (const b of input.belowThreshold)
     out.push({
       code: 'load-below-model-threshold',
@@ -120,6 +144,16 @@ export function boardWarnings(input: {
       threshold: 100,
     });
   return out;
+}
+
+/** The share of its breaker rating a load may draw, and that rule in words for the warning. */
+function breakerRule(region: Region, continuous: boolean): { share: number; words: string } {
+  if (region !== 'north-america') return { share: 1, words: 'IEC 60364-4-43: design current at most the rated current I_n' };
+  if (!continuous) return { share: 1, words: 'a noncontinuous load, marked continuous: false: up to 100 % of the rating' };
+  return {
+    share: WARNING_THRESHOLDS.continuousBreakerShare,
+    words: 'NEC 210.20(A): a continuous load — one that may run 3 h or more, as every load is taken unless marked continuous: false — at most 80 % of the rating, unless the breaker is listed for 100 % duty',
+  };
 }
 
 export const GENERAL_CAUTION =

@@ -50,6 +50,7 @@ export function readLoads(solution: NetworkSolution, busVoltages: readonly Compl
       circuit: load.schedule?.circuit ?? null,
       breakerA: load.schedule?.breakerA ?? null,
       poles: load.schedule?.poles ?? null,
+      continuous: load.schedule?.continuous ?? true,
     };
   });
 }

@@ -53,6 +53,8 @@ export interface CircuitSchedule {
   readonly circuit?: string;
   readonly breakerA?: number;
   readonly poles?: 1 | 2 | 3;
+  /** The file's `continuous` (absent: continuous, the cautious reading for a breaker check). */
+  readonly continuous?: boolean;
 }
 
 export interface Board {

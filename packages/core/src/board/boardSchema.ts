@@ -88,7 +88,7 @@ export const conductorSchema = z
     lengthM: within(PHYSICAL_RANGES.lengthM).optional().describe('route length, m'),
     lengthFt: within(PHYSICAL_RANGES.lengthFt).optional().describe('route length, ft'),
     rOhmPerKm: within(PHYSICAL_RANGES.ohmsPerKm).optional().describe('resistance per km of conductor, ohm/km'),
-    xOhmPerKm: within(PHYSICAL_RANGES.ohmsPerKm).optional().describe('reactance per km of conductor, ohm/km (default 0.08 for a library size)'),
+    xOhmPerKm: within(PHYSICAL_RANGES.ohmsPerKm).optional().describe('reactance per km of conductor at the supply frequency, ohm/km; default for a library size: AWG/kcmil NEC Chapter 9 Table 9 (PVC or aluminium conduit, 60 Hz), mm² 0.08 at 50 Hz, each scaled to the supply frequency'),
     mm2: within(PHYSICAL_RANGES.conductorMm2).optional().describe('metric size, mm² (resistance from IEC 60228 class 2)'),
     awg: z.string().max(AWG_MAX_CHARS).optional().describe('AWG size, e.g. "12" or "4/0" (resistance from NEC Chapter 9 Table 8)'),
     kcmil: within(PHYSICAL_RANGES.conductorKcmil).optional().describe('size in kcmil, e.g. 250 (NEC Chapter 9 Table 8)'),
@@ -178,6 +178,12 @@ export const loadSchema = z.strictObject({
     .literal(BREAKER_POLES)
     .optional()
     .describe('poles of the breaker on line conductors (a 1P+N device is 1): 1 for a line-to-neutral load, 2 line-to-line, 3 three-phase'),
+  continuous: z
+    .boolean()
+    .optional()
+    .describe(
+      'whether the load can run at its rating for 3 h or more (a continuous load); default true. On a North-American board a continuous load is warned about above 80 % of its breaker rating (NEC 210.20(A)), any other load above 100 %',
+    ),
   connection: z.enum(CONNECTIONS).describe('where the load connects'),
   starPoint: z
     .enum(STAR_POINTS)

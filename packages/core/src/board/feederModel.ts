@@ -6,7 +6,7 @@ import { complex, scale, type ComplexValue } from '../complex.js';
 import type { ConductorSpec, FeederSpec, PerPhaseConductorSpec } from './boardSchema.js';
 import type { PhaseId } from './systemTopology.js';
 import { labelIn, type PhaseNaming } from './conventions/phaseNames.js';
-import { conductorResistance, DEFAULT_CABLE_REACTANCE_OHM_PER_KM, type ConductorMaterial, type ConductorSize } from './cableLibrary.js';
+import { conductorReactance, conductorResistance, type ConductorMaterial, type ConductorSize } from './cableLibrary.js';
 
 const METRES_PER_FOOT = 0.3048;
 
@@ -30,8 +30,8 @@ export function lengthOf(c: ConductorSpec, feeder: FeederSpec | undefined): numb
   return null;
 }
 
-/** Impedance of one conductor (of its parallel set), ohm. */
-export function conductorImpedance(c: ConductorSpec | undefined, feeder: FeederSpec | undefined): ComplexValue {
+/** Impedance of one conductor (of its parallel set) at the supply frequency, ohm. */
+export function conductorImpedance(c: ConductorSpec | undefined, feeder: FeederSpec | undefined, frequencyHz: number): ComplexValue {
   if (!c) return complex(0, 0);
   const parallel = c.parallel ?? 1;
   let z = complex(c.r ?? 0, c.x ?? 0);
@@ -39,7 +39,8 @@ export function conductorImpedance(c: ConductorSpec | undefined, feeder: FeederS
   const size = sizeOf(c);
   if (size && length !== null) {
     const r = conductorResistance(size, materialOf(c), c.temperatureC);
-    z = complex(((r?.ohmPerKm ?? Number.NaN) * length) / 1000, ((c.xOhmPerKm ?? DEFAULT_CABLE_REACTANCE_OHM_PER_KM) * length) / 1000);
+    const x = c.xOhmPerKm ?? conductorReactance(size, frequencyHz)?.ohmPerKm ?? Number.NaN;
+    z = complex(((r?.ohmPerKm ?? Number.NaN) * length) / 1000, (x * length) / 1000);
   } else if (c.rOhmPerKm !== undefined && length !== null) {
     z = complex((c.rOhmPerKm * length) / 1000, ((c.xOhmPerKm ?? 0) * length) / 1000);
   }
@@ -69,7 +70,7 @@ export interface FeederModel {
 }
 
 /** @param naming how the file names the phases: a description per phase uses it (`L1: …`) @defaultValue 'A/B/C' */
-export function feederModel(feeder: FeederSpec | undefined, phases: readonly PhaseId[], naming: PhaseNaming = 'A/B/C'): FeederModel {
+export function feederModel(feeder: FeederSpec | undefined, phases: readonly PhaseId[], frequencyHz: number, naming: PhaseNaming = 'A/B/C'): FeederModel {
   const line = feeder?.line;
   const perPhase = line && isPerPhaseLine(line) ? line : null;
   const conductorOf = (p: PhaseId): ConductorSpec | undefined => (perPhase ? perPhase[p] : (line as ConductorSpec | undefined));
@@ -79,8 +80,8 @@ export function feederModel(feeder: FeederSpec | undefined, phases: readonly Pha
   const lineText = lineWords.length === 1 ? lineWords[0] : lineWords.every((w) => w !== null) ? phases.map((p) => `${labelIn(naming, p)}: ${describeConductor(conductorOf(p), feeder)}`).join('; ') : null;
   const description = lineText ? (neutralWords && neutralWords !== lineText ? `${lineText}; neutral ${neutralWords}` : lineText) : null;
   return {
-    lineImpedances: phases.map((p) => conductorImpedance(conductorOf(p), feeder)),
-    neutralImpedance: conductorImpedance(feeder?.neutral, feeder),
+    lineImpedances: phases.map((p) => conductorImpedance(conductorOf(p), feeder, frequencyHz)),
+    neutralImpedance: conductorImpedance(feeder?.neutral, feeder, frequencyHz),
     lineRatingA: ratings.length ? Math.min(...ratings) : null,
     neutralRatingA: feeder?.neutral?.ratingA ?? null,
     description,

@@ -124,6 +124,7 @@ function loadBranches(load: LoadBaseSpec, index: number, spec: BoardBaseSpec, ln
       ...(load.circuit !== undefined ? { circuit: load.circuit } : {}),
       ...(load.breakerA !== undefined ? { breakerA: load.breakerA } : {}),
       ...(load.poles !== undefined ? { poles: load.poles } : {}),
+      ...(load.continuous !== undefined ? { continuous: load.continuous } : {}),
     };
     return {
       name: load.name,
@@ -166,7 +167,7 @@ export function normaliseBoard(spec: BoardBaseSpec): Board {
   });
   const unequal = unequalSource(spec, phases, ln, ll);
   const conventions = resolveConventions(spec, { ln, ll });
-  const feeder = feederModel(spec.feeder, phases, conventions.phaseNames);
+  const feeder = feederModel(spec.feeder, phases, spec.supply.frequencyHz, conventions.phaseNames);
   const first = feeder.lineImpedances[0]!;
   const unequalLines = feeder.lineImpedances.some((z) => z.re !== first.re || z.im !== first.im);
   return {

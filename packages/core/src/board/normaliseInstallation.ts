@@ -26,7 +26,7 @@ export function normaliseInstallation(spec: InstallationBaseSpec): { installatio
   const subBoards: SubBoard[] = new Array(spec.boards.length - 1);
   spec.boards.forEach((b, i) => {
     if (i === mainIndex) return;
-    const feeder = feederModel(b.feeder, main.phases, naming);
+    const feeder = feederModel(b.feeder, main.phases, main.frequencyHz, naming);
     const board = normaliseBoard(boardSpecOf(spec, i));
     const limits = board.conventions?.voltageLimits;
     subBoards[boardNumber[i]! - 1] = {
@@ -38,6 +38,6 @@ export function normaliseInstallation(spec: InstallationBaseSpec): { installatio
       ...(limits && !sameLimits(limits, main.conventions?.voltageLimits) ? { voltageLimits: limits } : {}),
     };
   });
-  const serviceFeederDescription = feederModel(spec.boards[mainIndex]!.feeder, main.phases, naming).description;
+  const serviceFeederDescription = feederModel(spec.boards[mainIndex]!.feeder, main.phases, main.frequencyHz, naming).description;
   return { installation: { name: spec.name ?? main.name, main, subBoards, serviceFeederDescription }, boardNumber };
 }

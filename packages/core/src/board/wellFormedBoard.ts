@@ -110,6 +110,7 @@ const load = strictObjectOf({
   circuit: optional(textOf(1)),
   breakerA: optional(within(R.ratingA)),
   poles: optional(oneOf(BREAKER_POLES)),
+  continuous: optional(trueOrFalse),
   connection: required(oneOf(CONNECTIONS)),
   starPoint: optional(oneOf(STAR_POINTS)),
   kW: optional(within(R.loadKW)),

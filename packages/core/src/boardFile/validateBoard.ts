@@ -4,7 +4,6 @@
  * an `InputError`.
  */
 import { InputError } from '../errors.js';
-import { readBoardText } from '../board/readBoardText.js';
 import { validateBoardWith, type BoardFileChecks, type BoardValidationOf } from '../board/validateBoardWith.js';
 import { boardSchema, type BoardSpec } from './boardFileSchema.js';
 import { BOARD_FILE_RULES, readWellFormedBoard } from './boardFileRules.js';
@@ -35,9 +34,4 @@ export function parseBoard(input: unknown): BoardSpec {
   const result = validateBoard(input);
   if (!result.ok) throw new InputError(result.issues);
   return result.board;
-}
-
-/** `readBoardText` then `parseBoard`. @throws {InputError} */
-export function parseBoardText(text: string): BoardSpec {
-  return parseBoard(readBoardText(text));
 }

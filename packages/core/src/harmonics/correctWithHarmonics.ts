@@ -85,11 +85,6 @@ export interface CorrectionHarmonics {
 /** A correction report with the harmonic comparison of plain and detuned variants. */
 export type HarmonicCorrectionReport = CorrectionReport & { readonly harmonics: CorrectionHarmonics };
 
-/** True when the board file gives the harmonic study something to work on. */
-export function boardHasHarmonicData(spec: HarmonicsBoardSpec): boolean {
-  return spec.harmonics !== undefined || spec.loads.some((l) => l.spectrum !== undefined && l.spectrum !== 'linear');
-}
-
 /** The catalogue a study uses, as plain unit specs (user's, or the practice's typical one at the board frequency). */
 function catalogueOf(board: Board, study: ReturnType<typeof parseCorrectionSpec>): CapacitorUnitSpec[] {
   if (study.catalogue) return study.catalogue.map((u, i) => ({ ...catalogueUnitOf(u, i) }));

@@ -10,10 +10,14 @@ import type { Board, BoardLoad, Installation } from '../board/boardModel.js';
 import type { CapacitanceTolerance, DutyCondition } from './harmonicsResult.js';
 import type { HarmonicModel, LoadBehaviour } from './harmonicModel.js';
 
-/** Nominal with the loads as given first (ties keep the plain case), then the tolerance ends, then the same with every load off. */
-export function dutyConditions(tolerance: CapacitanceTolerance): DutyCondition[] {
+/**
+ * Nominal with the loads as given first (ties keep the plain case), then the tolerance ends, then
+ * the same with every load off; with `otherBanks`, all of that with the other banks on, then off.
+ */
+export function dutyConditions(tolerance: CapacitanceTolerance, otherBanks = false): DutyCondition[] {
   const capacitance = [100, 100 - tolerance.minusPercent, 100 + tolerance.plusPercent].filter((c, i, all) => all.indexOf(c) === i);
-  return (['as given', 'off'] as const).flatMap((loads) => capacitance.map((capacitancePercent) => ({ capacitancePercent, loads })));
+  const plain = (['as given', 'off'] as const).flatMap((loads) => capacitance.map((capacitancePercent): DutyCondition => ({ capacitancePercent, loads })));
+  return otherBanks ? (['on', 'off'] as const).flatMap((state) => plain.map((c): DutyCondition => ({ ...c, otherBanks: state }))) : plain;
 }
 
 /** Every load of the board off (what a study added, such as the bank, stays), as `withSteps` switches a step off. */
@@ -24,6 +28,15 @@ export function withLoadsOff(board: Board): Board {
 /** Every load of every board off (what a study added stays). */
 export function withInstallationLoadsOff(installation: Installation): Installation {
   return { ...installation, main: withLoadsOff(installation.main), subBoards: installation.subBoards.map((sb) => ({ ...sb, loads: loadsOff(sb.loads) })) };
+}
+
+/** Every bank part of the boards other than `b` off (`banks`: per board, its bank's load numbers). */
+export function withOtherBanksOff(installation: Installation, banks: readonly (readonly number[])[], b: number): Installation {
+  const off = (c: number, loads: readonly BoardLoad[]) => {
+    const parts = new Set(c === b ? [] : banks[c]!);
+    return parts.size === 0 ? loads : loads.map((l, i): BoardLoad => (parts.has(i) ? { ...l, branches: l.branches.map((x) => ({ ...x, sNominal: { re: 0, im: 0 } })) } : l));
+  };
+  return { ...installation, main: { ...installation.main, loads: off(0, installation.main.loads) }, subBoards: installation.subBoards.map((sb, i) => ({ ...sb, loads: off(i + 1, sb.loads) })) };
 }
 
 const loadsOff = (loads: readonly BoardLoad[]): BoardLoad[] =>
@@ -57,5 +70,6 @@ export function withCapacitanceFactor(board: Board, model: HarmonicModel, factor
 export function conditionWords(c: DutyCondition): string {
   const deviation = c.capacitancePercent - 100;
   const capacitance = deviation === 0 ? 'nominal capacitance' : `capacitance ${deviation > 0 ? '+' : '−'}${Math.abs(Number(deviation.toFixed(2)))} %`;
-  return `${capacitance}, ${c.loads === 'off' ? 'every load off' : 'loads as given'}`;
+  const others = c.otherBanks === undefined ? '' : c.otherBanks === 'off' ? ', other banks out of service' : ', other banks on';
+  return `${capacitance}, ${c.loads === 'off' ? 'every load off' : 'loads as given'}${others}`;
 }

@@ -26,4 +26,11 @@ export const HARMONICS_DEFAULTS = {
   watchedOrders: [3, 5, 7, 11, 13],
   /** A scan peak must stand this far (fraction of its height) above the valley beside it to count. */
   peakProminence: 0.05,
+  /**
+   * Most networks scanned from one bank's board with the other banks switched (its states × theirs):
+   * each is a full scan, 7–9 ms at 481 points on a three-board installation (examples/ferrybank-joinery.yaml
+   * on a shared two-core machine), so the limit is half a minute at most. Above it the other banks
+   * are taken at their extremes.
+   */
+  jointStateLimit: 4096,
 } as const;

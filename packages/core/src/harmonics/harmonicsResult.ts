@@ -128,6 +128,57 @@ export interface ResonanceScan {
   readonly basis: string;
 }
 
+/** A level another bank is scanned at. */
+export interface OtherBankLevel {
+  /** In words: `off`, `out of service` (its fixed part off too), `fixed part only`, `steps 1+2`… */
+  readonly label: string;
+  readonly steps: readonly boolean[];
+  /** Whether its fixed part is on (false only out of service). */
+  readonly fixedOn: boolean;
+  /** Effective fundamental output on, at nominal voltage, three-phase kvar. */
+  readonly capacitorKvar: number;
+}
+
+/** A scan peak and the other banks' state it is found in. */
+export interface JointPeak extends ScanPeak {
+  /** The other banks' state, in words: `Studios bank off; Plant bank steps 1+2`. */
+  readonly otherBanks: string;
+}
+
+/** One combination of a bank's steps over every scanned state of the other banks. */
+export interface JointScanCombination {
+  readonly steps: readonly boolean[];
+  readonly label: string;
+  readonly capacitorKvar: number;
+  /** States of the other banks scanned with this combination. */
+  readonly networkStates: number;
+  /** Per state of the other banks, the orders of its peaks (every pair's, rounded to 0.01, each once, ascending). */
+  readonly states: readonly { readonly otherBanks: string; readonly peakOrders: readonly number[] }[];
+  /** The lowest and highest peak found over those states; null when none has a peak. */
+  readonly lowestPeak: JointPeak | null;
+  readonly highestPeak: JointPeak | null;
+  /** The peak nearest a checked order (relative to the order) over those states, and that order. */
+  readonly nearest: (JointPeak & { readonly checkedOrder: number }) | null;
+  /** Checked orders within ±10 % of a peak in some state, each with the state whose peak is nearest it. */
+  readonly nearOrders: readonly { readonly order: number; readonly peak: JointPeak }[];
+}
+
+/** The resonance seen from a bank's board with the installation's other banks switched too. */
+export interface JointScan {
+  /** Each other bank's board and the levels it was scanned at (lowest first). */
+  readonly otherBanks: readonly { readonly board: string; readonly levels: readonly OtherBankLevel[] }[];
+  /**
+   * How the other banks' states were chosen: every level a controller steps each through, combined;
+   * above `stateLimit` networks each at its extremes (off or fully on); above it again all together.
+   */
+  readonly coverage: 'controller levels' | 'each off or fully on' | 'all off or all on together';
+  /** Distinct networks scanned (this bank's distinct states × the other banks' states). */
+  readonly networkStates: number;
+  readonly stateLimit: number;
+  /** Per combination of this bank's steps, in the scan's order. */
+  readonly combinations: readonly JointScanCombination[];
+}
+
 export interface DutyFigures {
   /** Per unit of the capacitor rating. */
   readonly voltageRms: number;
@@ -154,6 +205,8 @@ export interface DutyCondition {
   readonly capacitancePercent: number;
   /** `as given`: the board's loads as in the file; `off`: every load off, the highest voltage a bank on a lagging board sees. */
   readonly loads: 'as given' | 'off';
+  /** On an installation with other banks: whether they are all fully on or all out of service. */
+  readonly otherBanks?: 'on' | 'off';
 }
 
 export interface DutyCase {
@@ -255,7 +308,10 @@ export interface BoardHarmonics {
 /** The scan seen from one board of an installation (a bank's board), and that bank's duty. */
 export interface BoardScan {
   readonly board: string;
+  /** Every combination of this bank's steps with every other bank fully on. */
   readonly scan: ResonanceScan;
+  /** The same with the other banks switched; null without another bank. */
+  readonly jointScan: JointScan | null;
   /** Null where the board has no bank. */
   readonly capacitorDuty: CapacitorDuty | null;
 }

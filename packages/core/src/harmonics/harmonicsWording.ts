@@ -3,7 +3,7 @@
  * assumptions and cautions, in one place.
  */
 import { distinctDigits } from '../correction/correctionWording.js';
-import type { BusVoltageDistortion } from './harmonicsResult.js';
+import type { BusVoltageDistortion, JointScan } from './harmonicsResult.js';
 
 const pct = (x: number) => `${x.toFixed(1)} %`;
 /** A figure above its limit, with the decimals it needs to read above it (5.04 %, never "5.0 %, above 5 %"). */
@@ -37,6 +37,11 @@ export const harmonicsWarningText = {
       : `the neutral current is ${ratio.toFixed(2)} × the largest line current: triplen harmonics add in the neutral instead of cancelling`,
   resonance: (states: readonly string[], peak: number, order: number) =>
     `resonance with the supply at h ≈ ${peak.toFixed(2)}, within ±10 % of order ${order}, with the bank at ${states.length > 3 ? `${states.slice(0, 3).join(', ')} and ${states.length - 3} more state(s)` : states.join(', ')}: voltages and capacitor currents are amplified there`,
+  /** A resonance near `order` only with other banks switched: `state` names this bank's state and the others'. */
+  resonanceOtherBanks: (state: string, others: string, peak: number, order: number, moreStates: number) =>
+    `${state} with ${others}: resonance with the supply at h ≈ ${peak.toFixed(2)}, within ±10 % of order ${order}${
+      moreStates > 0 ? ` (likewise ${moreStates} more state${moreStates > 1 ? 's' : ''} of this bank)` : ''
+    }; with every other bank fully on that state is clear of order ${order}, so voltages and capacitor currents are amplified there when the other banks step down`,
   capacitorDuty: (label: string, branch: string, what: string) => `with ${label} the capacitors of branch ${branch} exceed their limit: ${what}`,
   voltageThd: (bus: string, thd: number, limit: number) => `voltage THD at the board on ${bus} is ${above(thd, limit)}, above the ${limit} % IEEE 519 limit for ≤ 1 kV`,
   voltageIndividual: (buses: readonly BusVoltageDistortion[], limit: number) =>
@@ -47,6 +52,33 @@ export const harmonicsWarningText = {
     `line ${phase}: TDD ${pct(tdd)} (IEEE 519 limit ${limit} % for this short-circuit ratio)${orders.length ? `; order${orders.length > 1 ? 's' : ''} ${orders.join(', ')} above the individual limits` : ''}`,
   idealSource: 'the supply has no impedance in the board file: harmonic currents make no voltage distortion and no bank can resonate with it — give supply.transformer or supply.impedance for a real answer',
   noBank: 'no bank in harmonics.bank: the scan shows the board as it is',
+};
+
+/** A bank's state in words: `Workshop bank off`, `Workshop bank steps 1+2`. */
+export const bankStateWords = (board: string, label: string): string => `${board} bank ${label === 'bank off' ? 'off' : label}`;
+
+/** What a joint scan covered, in words: each other bank's levels and how they were chosen. */
+export function jointCoverageWords(joint: JointScan): string {
+  const how =
+    joint.coverage === 'controller levels'
+      ? 'every level a controller steps each through, combined'
+      : joint.coverage === 'each off or fully on'
+        ? `each only off or fully on: their levels combined would pass ${joint.stateLimit} networks`
+        : `only all off together and all fully on together: their levels combined would pass ${joint.stateLimit} networks`;
+  return `other banks scanned at ${joint.otherBanks.map((o) => `${o.board}: ${o.levels.map((l) => l.label).join(', ')}`).join('; ')} (${how}; ${joint.networkStates} networks)`;
+}
+
+/** The nearest approach of a peak to a checked order, in words: `h 7.12, 1.7 % from 7`. */
+export const nearestWords = (n: { readonly order: number; readonly checkedOrder: number }): string =>
+  `h ${n.order.toFixed(2)}, ${((100 * Math.abs(n.order - n.checkedOrder)) / n.checkedOrder).toFixed(1)} % from ${n.checkedOrder}`;
+
+export const harmonicsAssumptionText = {
+  jointScan:
+    'each bank’s scan is repeated with the other banks switched: every combination of its own steps with each other bank at every level a controller steps it through (off, step 1, steps 1+2, … in the order its steps are written; out of service and fixed part only where it has a fixed part), all combined; other orders of switching their steps are not scanned',
+  jointScanReduced: (board: string, joint: JointScan) =>
+    `${board}: the other banks’ levels combined would make more than ${joint.stateLimit} networks, so they were scanned ${
+      joint.coverage === 'each off or fully on' ? 'each only off (out of service) or fully on' : 'only all off together and all fully on together'
+    } (${joint.networkStates} networks); intermediate levels are not covered`,
 };
 
 /** Shown with every harmonics study, in the region's words ("earth" or "ground"). */

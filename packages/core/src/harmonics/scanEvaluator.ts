@@ -1,35 +1,58 @@
 /**
  * |Z| between terminal pairs of one board at any order h, for any state of
- * that board's bank, with every EMF shorted: the network "looking in" from the
- * board. The network is the installation's compiled circuit — the one every
- * solve uses — so the source windings, the service feeder, a source star-point
- * impedance or open-delta corner where the file gives one, every feeder on the
- * way to the board and every other board's loads are all in it, each scaled to
- * order h like the harmonic solve (networkAtOrder.ts). A single board is the
- * installation with one board.
+ * every bank in the installation, with every EMF shorted: the network "looking
+ * in" from the board. The network is the installation's compiled circuit — the
+ * one every solve uses — so the source windings, the service feeder, a source
+ * star-point impedance or open-delta corner where the file gives one, every
+ * feeder on the way to the board and every other board's loads are all in it,
+ * each scaled to order h like the harmonic solve (networkAtOrder.ts). A single
+ * board is the installation with one board.
  *
- * Per order the elements and the loads outside the bank are stamped once; each
- * state then adds the bank's parts that are on and inverts the nodal matrix
- * (network/terminalImpedance.ts: flat typed arrays, no allocation in the loop).
+ * Per order the elements and the loads outside the banks are stamped once;
+ * each state then adds the bank parts that are on — this board's bank and any
+ * other board's — and inverts the nodal matrix (network/terminalImpedance.ts:
+ * flat typed arrays, no allocation in the loop).
  */
 import { inverse, type ComplexValue } from '../complex.js';
 import type { Board, Terminal } from '../board/boardModel.js';
 import { REFERENCE } from '../network/circuit.js';
 import { compileInstallation, type InstallationSolution } from '../network/solveNetwork.js';
 import { copyNodalMatrix, createNodalMatrix, impedanceBetween, invertNodalMatrix, stampAdmittance } from '../network/terminalImpedance.js';
-import type { HarmonicModel } from './harmonicModel.js';
+import type { HarmonicModel, LoadBehaviour } from './harmonicModel.js';
 import { branchAdmittanceAtOrder } from './networkAtOrder.js';
 
+/** A bank the evaluator switches: the board it is on and its parts. */
+export interface ScanBank {
+  /** Board number in the installation (0 = main board). */
+  readonly board: number;
+  readonly stepCount: number;
+  readonly hasFixedPart: boolean;
+}
+
+/** One bank's state in a scanned network. */
+export interface BankState {
+  /** Which steps are on, in step order. */
+  readonly steps: readonly boolean[];
+  /** Whether its fixed part is on: false only for a bank out of service. */
+  readonly fixedOn: boolean;
+}
+
 /**
- * An evaluator of |Z| between terminal pairs at any order h, for any step
- * combination. Reuses its matrices: not re-entrant.
+ * An evaluator of |Z| between terminal pairs at any order h, for any state of
+ * the banks. Reuses its matrices: not re-entrant.
  */
 export interface ScanEvaluator {
   readonly pairs: readonly [Terminal, Terminal][];
-  /** Loads the network without the bank at order h; call before `impedances` for that h. */
+  /** Every bank of the installation, in board order. */
+  readonly banks: readonly ScanBank[];
+  /** Index in `banks` of the scanned board's own bank; -1 when it has none. */
+  readonly ownBank: number;
+  /** Loads the network without the banks at order h; call before `impedances` for that h. */
   prepare(h: number): void;
-  /** |Z| of each pair into `out[offset + pair]` for the prepared order and `steps`. */
+  /** |Z| of each pair into `out[offset + pair]` for the prepared order, the board's own bank at `steps` and every other bank fully on. */
   impedances(steps: readonly boolean[], out: Float64Array, offset: number): void;
+  /** As `impedances`, with every bank as `states` has it (one per `banks`). */
+  impedancesIn(states: readonly BankState[], out: Float64Array, offset: number): void;
 }
 
 /** Terminal pairs the scan reads: phase to neutral where there is a neutral, then line pairs. */
@@ -74,7 +97,7 @@ function numberUnknowns(circuit: ReturnType<typeof compileInstallation>['network
 /**
  * The evaluator for board `boardIndex` of a solved installation (0 = main board).
  * @param fundamental the installation solved at the fundamental with every bank part on
- * @param models one per board: how its loads behave at harmonic orders; the scanned board's bank is switched
+ * @param models one per board: how its loads behave at harmonic orders; every board's bank is switchable
  */
 export function createInstallationScanEvaluator(fundamental: InstallationSolution, models: readonly HarmonicModel[], boardIndex: number): ScanEvaluator {
   const { layout, network } = compileInstallation(fundamental.installation);
@@ -108,19 +131,30 @@ export function createInstallationScanEvaluator(fundamental: InstallationSolutio
     const z = inverse(s.admittance);
     push(fixed, at(s.plus), at(s.minus), 3, z.re, z.im);
   }
-  // Loads: linear ones at their solved admittance, non-linear ones open; the scanned bank apart.
-  const bank = models[boardIndex]!.bank;
-  const bankParts = new Set(bank ? [...(bank.fixedLoad === null ? [] : [bank.fixedLoad]), ...bank.stepLoads] : []);
+  // Loads: linear ones at their solved admittance, non-linear ones open; every bank's parts apart.
+  const banks: ScanBank[] = [];
+  /** Per switchable part: its board, its load, its bank (index in `banks`) and its step (-1: the fixed part). */
+  const parts: { board: number; load: number; bank: number; step: number }[] = [];
+  models.forEach((m, b) => {
+    const bank = m.bank;
+    if (!bank) return;
+    const k = banks.push({ board: b, stepCount: bank.stepLoads.length, hasFixedPart: bank.fixedLoad !== null }) - 1;
+    if (bank.fixedLoad !== null) parts.push({ board: b, load: bank.fixedLoad, bank: k, step: -1 });
+    bank.stepLoads.forEach((load, step) => parts.push({ board: b, load, bank: k, step }));
+  });
+  const ownBank = banks.findIndex((x) => x.board === boardIndex);
+  const isBankPart = (b: number, l: number) => parts.some((p) => p.board === b && p.load === l);
   const detuningFactors = new Set<number>();
   fundamental.boards.forEach((solution, b) => {
     let k = layout.branchOffset[b]!;
     solution.board.loads.forEach((load, l) => {
       const behaviour = models[b]!.loads[l]!;
       if (behaviour.kind === 'detuned') detuningFactors.add(behaviour.p);
+      const banked = isBankPart(b, l);
       load.branches.forEach((_, i) => {
         const cb = circuit.branches[k++]!;
         const y = solution.branches[l]![i]!.admittance;
-        if ((b === boardIndex && bankParts.has(l)) || behaviour.kind === 'non-linear') return;
+        if (banked || behaviour.kind === 'non-linear') return;
         if (!alive(cb.from) || !alive(cb.to) || (y.re === 0 && y.im === 0)) return;
         if (behaviour.kind === 'detuned') push(fixed, at(cb.from), at(cb.to), 2, y.im * (1 - behaviour.p), behaviour.p);
         else if (behaviour.form === 'parallel') push(fixed, at(cb.from), at(cb.to), 0, y.re, y.im);
@@ -161,34 +195,62 @@ export function createInstallationScanEvaluator(fundamental: InstallationSolutio
     }
   };
 
-  // The bank's parts, each with its branches' ends; floating star points of the bank are tied to
-  // nothing while every part on them is off, so they get a unit diagonal then.
-  const bankSolution = fundamental.boards[boardIndex]!;
-  const firstBranch: number[] = [];
-  bankSolution.board.loads.reduce((k, load) => (firstBranch.push(k), k + load.branches.length), layout.branchOffset[boardIndex]!);
-  const partEnds = new Map<number, ([number, number] | null)[]>(
-    [...bankParts].map((l) => [
-      l,
-      bankSolution.board.loads[l]!.branches.map((_, i) => {
-        const cb = circuit.branches[firstBranch[l]! + i]!;
-        return alive(cb.from) && alive(cb.to) ? [at(cb.from), at(cb.to)] : null;
-      }),
-    ]),
-  );
-  const starNodesOf = (l: number) =>
-    [...new Set(board.loads[l]!.branches.flatMap((b) => [b.from, b.to]).filter((t) => t.startsWith('star:')))].map((t) => at(terminals.get(t) ?? REFERENCE)).filter((n) => n >= 0);
-  const bankStarNodes = [...new Set([...bankParts].flatMap(starNodesOf))];
-  const partsOnStar = new Map<number, number[]>(bankStarNodes.map((n) => [n, [...bankParts].filter((l) => starNodesOf(l).includes(n))]));
-  const partStamps = new Map<number, { p: number; q: number; y: ComplexValue }[]>();
-  const stepOfPart = new Map<number, number>(bank ? bank.stepLoads.map((l, k) => [l, k]) : []);
-  const parts = [...bankParts];
+  // Each part's branches as flat stamps (part, ends, fundamental admittance); the admittance at order h is set per order.
+  const stamps: { part: number; p: number; q: number; y1: ComplexValue; behaviour: LoadBehaviour }[] = [];
+  parts.forEach(({ board: b, load: l }, part) => {
+    const solution = fundamental.boards[b]!;
+    const first = layout.branchOffset[b]! + solution.board.loads.slice(0, l).reduce((n, x) => n + x.branches.length, 0);
+    solution.board.loads[l]!.branches.forEach((_, i) => {
+      const cb = circuit.branches[first + i]!;
+      if (alive(cb.from) && alive(cb.to)) stamps.push({ part, p: at(cb.from), q: at(cb.to), y1: solution.branches[l]![i]!.admittance, behaviour: models[b]!.loads[l]! });
+    });
+  });
+  const stampPart = Int32Array.from(stamps, (x) => x.part);
+  const stampP = Int32Array.from(stamps, (x) => x.p);
+  const stampQ = Int32Array.from(stamps, (x) => x.q);
+  const stampRe = new Float64Array(stamps.length);
+  const stampIm = new Float64Array(stamps.length);
+  // Floating star points of the banks are tied to nothing while every part on them is off, so they get a unit diagonal then.
+  const starNodesOf = (b: number, l: number) => {
+    const terminalsOf = layout.topologies[b]!.terminalNode;
+    const names = fundamental.boards[b]!.board.loads[l]!.branches.flatMap((x) => [x.from, x.to]).filter((t) => t.startsWith('star:'));
+    return [...new Set(names)].map((t) => at(terminalsOf.get(t) ?? REFERENCE)).filter((n) => n >= 0);
+  };
+  const starParts = new Map<number, number[]>();
+  parts.forEach(({ board: b, load: l }, part) => {
+    for (const n of starNodesOf(b, l)) starParts.set(n, [...(starParts.get(n) ?? []), part]);
+  });
+  const starNode = Int32Array.from(starParts.keys());
+  const starPart = Int32Array.from([...starParts.values()].flat());
+  const starStart = new Int32Array(starNode.length + 1);
+  [...starParts.values()].forEach((list, k) => (starStart[k + 1] = starStart[k]! + list.length));
+  const partOn = new Uint8Array(parts.length);
 
   const base = createNodalMatrix(size);
   const work = createNodalMatrix(size);
   const inverseWork = createNodalMatrix(size);
   const pairZ = new Float64Array(2);
+  /** |Z| of every pair with the parts `partOn` marks. */
+  const evaluate = (out: Float64Array, offset: number) => {
+    copyNodalMatrix(base, work);
+    for (let k = 0; k < stampPart.length; k++) if (partOn[stampPart[k]!] === 1) stampAdmittance(work, stampP[k]!, stampQ[k]!, stampRe[k]!, stampIm[k]!);
+    for (let k = 0; k < starNode.length; k++) {
+      let tied = false;
+      for (let j = starStart[k]!; j < starStart[k + 1]! && !tied; j++) tied = partOn[starPart[j]!] === 1;
+      if (!tied) stampAdmittance(work, starNode[k]!, -1, 1, 0);
+    }
+    if (size > 0) invertNodalMatrix(work, inverseWork);
+    for (let k = 0; k < ends.length; k++) {
+      if (size === 0) pairZ.fill(0);
+      else impedanceBetween(work, ends[k]![0], ends[k]![1], pairZ, 0);
+      // Math.hypot is several times slower than this in V8, and |Z| never nears overflow.
+      out[offset + k] = Math.sqrt(pairZ[0]! * pairZ[0]! + pairZ[1]! * pairZ[1]!);
+    }
+  };
   return {
     pairs,
+    banks,
+    ownBank,
     prepare(h0: number) {
       // Off the exact series resonance of a lossless detuned branch, where its admittance is infinite.
       let h = h0;
@@ -196,32 +258,26 @@ export function createInstallationScanEvaluator(fundamental: InstallationSolutio
       base.re.fill(0);
       base.im.fill(0);
       stampFixed(base, h);
-      for (const l of parts) {
-        const behaviour = models[boardIndex]!.loads[l]!;
-        partStamps.set(
-          l,
-          bankSolution.branches[l]!.flatMap((state, k) => {
-            const e = partEnds.get(l)![k];
-            return e ? [{ p: e[0], q: e[1], y: branchAdmittanceAtOrder(state.admittance, behaviour, h) }] : [];
-          }),
-        );
-      }
+      stamps.forEach((x, k) => {
+        const y = branchAdmittanceAtOrder(x.y1, x.behaviour, h);
+        stampRe[k] = y.re;
+        stampIm[k] = y.im;
+      });
     },
     impedances(steps, out, offset) {
-      copyNodalMatrix(base, work);
-      const isOn = (l: number) => {
-        const step = stepOfPart.get(l);
-        return step === undefined || steps[step] === true;
-      };
-      for (const l of parts) if (isOn(l)) for (const s of partStamps.get(l)!) stampAdmittance(work, s.p, s.q, s.y.re, s.y.im);
-      for (const n of bankStarNodes) if (!partsOnStar.get(n)!.some(isOn)) stampAdmittance(work, n, -1, 1, 0);
-      if (size > 0) invertNodalMatrix(work, inverseWork);
-      for (let k = 0; k < ends.length; k++) {
-        if (size === 0) pairZ.fill(0);
-        else impedanceBetween(work, ends[k]![0], ends[k]![1], pairZ, 0);
-        // Math.hypot is several times slower than this in V8, and |Z| never nears overflow.
-        out[offset + k] = Math.sqrt(pairZ[0]! * pairZ[0]! + pairZ[1]! * pairZ[1]!);
+      for (let k = 0; k < parts.length; k++) {
+        const part = parts[k]!;
+        partOn[k] = part.bank !== ownBank || part.step < 0 || steps[part.step] === true ? 1 : 0;
       }
+      evaluate(out, offset);
+    },
+    impedancesIn(states, out, offset) {
+      for (let k = 0; k < parts.length; k++) {
+        const part = parts[k]!;
+        const state = states[part.bank]!;
+        partOn[k] = (part.step < 0 ? state.fixedOn : state.steps[part.step] === true) ? 1 : 0;
+      }
+      evaluate(out, offset);
     },
   };
 }

@@ -53,7 +53,7 @@ export function createScanEvaluator(fundamental: NetworkSolution, model: Harmoni
  * Rounds a curve for plotting to 1e-6 of its largest value (one multiply and
  * round per point: over a million points toPrecision would take longer than the scan).
  */
-function roundForPlot(curve: Float64Array | readonly number[]): number[] {
+export function roundForPlot(curve: Float64Array | readonly number[]): number[] {
   let largest = 0;
   for (const z of curve) if (z > largest) largest = z;
   if (!(largest > 0)) return Array.from(curve);
@@ -126,6 +126,44 @@ export function peakIndices(values: ArrayLike<number>, prominence: number): numb
   return peaks;
 }
 
+/**
+ * Every peak of one network state's curves, refined between grid points: `values[i·pairs + k]` is
+ * |Z| of pair k at grid point i, and `evaluate` fills every pair's |Z| for the order the evaluator
+ * was last prepared at, in that same state.
+ */
+export function refinedPeaks(
+  evaluator: ScanEvaluator,
+  grid: readonly number[],
+  values: Float64Array,
+  evaluate: (out: Float64Array) => void,
+): { curves: Float64Array[]; peaks: ScanPeak[] } {
+  const nPairs = evaluator.pairs.length;
+  const out = new Float64Array(nPairs);
+  const curves = evaluator.pairs.map((_, k) => {
+    const curve = new Float64Array(grid.length);
+    for (let i = 0; i < grid.length; i++) curve[i] = values[i * nPairs + k]!;
+    return curve;
+  });
+  const peaks: ScanPeak[] = [];
+  curves.forEach((curve, k) => {
+    for (const i of peakIndices(curve, HARMONICS_DEFAULTS.peakProminence)) {
+      const at = (h: number) => {
+        evaluator.prepare(h);
+        evaluate(out);
+        return out[k]!;
+      };
+      const refined = refineMaximum(at, grid[i - 1]!, grid[i]!, grid[i + 1]!, curve[i]!);
+      const [p, q] = evaluator.pairs[k]!;
+      peaks.push({ pair: `${p}-${q}`, order: refined.h, impedanceOhm: refined.value });
+    }
+  });
+  return { curves, peaks };
+}
+
+/** Checked orders within the resonance band (±10 %) of a peak. */
+export const ordersNear = (peaks: readonly ScanPeak[], checked: readonly number[]): number[] =>
+  checked.filter((o) => peaks.some((pk) => Math.abs(pk.order - o) <= HARMONICS_DEFAULTS.resonanceBand * o));
+
 export interface ScanOptions {
   /** Orders to scan. @defaultValue the model's scan grid */
   readonly grid?: readonly number[];
@@ -157,41 +195,18 @@ export function scanResonance(fundamental: NetworkSolution, model: HarmonicModel
     if (firstOf[c] !== c) values[c] = values[firstOf[c]!]!;
   });
   const ssc = shortCircuitVA(board);
-  const band = HARMONICS_DEFAULTS.resonanceBand;
-  const out = new Float64Array(nPairs);
   const shared = new Map<number, Pick<ScanCombination, 'impedanceOhm' | 'peaks'>>();
   const combinations = combos.map((steps, c): ScanCombination => {
     const kvar = bank ? bankKvarOn(board, bank, steps) : 0;
     const label = combinationLabel(bank, steps);
     const formulaOrder = ssc !== null && kvar > 0 && (bank?.detuning ?? 0) === 0 ? Math.sqrt(ssc / (kvar * 1000)) : null;
     const same = shared.get(firstOf[c]!);
-    if (same) {
-      const nearOrders = options.checkedOrders.filter((o) => same.peaks.some((pk) => Math.abs(pk.order - o) <= band * o));
-      return { steps, label, capacitorKvar: kvar, formulaOrder, impedanceOhm: same.impedanceOhm, peaks: same.peaks, nearOrders };
-    }
-    const curves = evaluator.pairs.map((_, k) => {
-      const curve = new Float64Array(grid.length);
-      for (let i = 0; i < grid.length; i++) curve[i] = values[c]![i * nPairs + k]!;
-      return curve;
-    });
+    if (same) return { steps, label, capacitorKvar: kvar, formulaOrder, impedanceOhm: same.impedanceOhm, peaks: same.peaks, nearOrders: ordersNear(same.peaks, options.checkedOrders) };
+    const { curves, peaks } = refinedPeaks(evaluator, grid, values[c]!, (out) => evaluator.impedances(steps, out, 0));
     // The curves are for plotting, so rounded (peaks are found and refined on the exact values).
     const plotted = curves.map(roundForPlot);
-    const peaks: ScanPeak[] = [];
-    curves.forEach((curve, k) => {
-      for (const i of peakIndices(curve, HARMONICS_DEFAULTS.peakProminence)) {
-        const at = (h: number) => {
-          evaluator.prepare(h);
-          evaluator.impedances(steps, out, 0);
-          return out[k]!;
-        };
-        const refined = refineMaximum(at, grid[i - 1]!, grid[i]!, grid[i + 1]!, curve[i]!);
-        const [p, q] = evaluator.pairs[k]!;
-        peaks.push({ pair: `${p}-${q}`, order: refined.h, impedanceOhm: refined.value });
-      }
-    });
     shared.set(c, { impedanceOhm: plotted, peaks });
-    const nearOrders = options.checkedOrders.filter((o) => peaks.some((pk) => Math.abs(pk.order - o) <= band * o));
-    return { steps, label, capacitorKvar: kvar, formulaOrder, impedanceOhm: plotted, peaks, nearOrders };
+    return { steps, label, capacitorKvar: kvar, formulaOrder, impedanceOhm: plotted, peaks, nearOrders: ordersNear(peaks, options.checkedOrders) };
   });
   return {
     orders: grid,

@@ -30,6 +30,8 @@ export interface HarmonicsOptions {
   readonly solve?: SolveOptions;
   /** Scan grid override (orders), e.g. for a benchmark. @defaultValue from the board file's harmonics.scan */
   readonly scanOrders?: readonly number[];
+  /** Most networks scanned from one bank's board with the other banks switched. @defaultValue HARMONICS_DEFAULTS.jointStateLimit */
+  readonly jointStateLimit?: number;
 }
 
 /** Solves the fundamental and every order present. */
@@ -99,9 +101,10 @@ export function checkedOrders(present: readonly number[]): Pick<ResonanceScan, '
 
 /**
  * Solves the fundamental and every order for the bank's board as given (`board`, `model`), with
- * every load off when `loadsOff`: the whole installation where the board has a place in one.
+ * every load off when `loadsOff`: the whole installation where the board has a place in one, with
+ * every other board's bank out of service when `otherBanksOff`.
  */
-export type DutySolver = (board: Board, model: HarmonicModel, loadsOff: boolean) => OrderSolution[];
+export type DutySolver = (board: Board, model: HarmonicModel, loadsOff: boolean, otherBanksOff: boolean) => OrderSolution[];
 
 /** The duty solver of a single board. */
 const boardDutySolver =
@@ -109,12 +112,15 @@ const boardDutySolver =
   (board, model, loadsOff) =>
     solveHarmonicOrders(loadsOff ? withLoadsOff(board) : board, model, solve);
 
-/** Every state of the board's bank, each at the capacitance tolerance ends and with the loads off: the worst per state. */
-export function capacitorDuty(board: Board, model: HarmonicModel, solveOrders: DutySolver): CapacitorDuty | null {
+/**
+ * Every state of the board's bank, each at the capacitance tolerance ends and with the loads off —
+ * and, where the installation has `otherBanks`, with them all on and all out of service: the worst per state.
+ */
+export function capacitorDuty(board: Board, model: HarmonicModel, solveOrders: DutySolver, otherBanks = false): CapacitorDuty | null {
   const bank = model.bank;
   if (!bank) return null;
   const { limits, source } = DUTY_LIMITS[model.capacitorStandard];
-  const conditions = dutyConditions(model.capacitanceTolerance);
+  const conditions = dutyConditions(model.capacitanceTolerance, otherBanks);
   const ratio = (c: DutyCase) => dutyRatio(c.figures, limits);
   const cases: DutyCase[] = [];
   const nominalCases: DutyCase[] = [];
@@ -129,9 +135,10 @@ export function capacitorDuty(board: Board, model: HarmonicModel, solveOrders: D
     let worst: DutyCase | null = null;
     for (const condition of conditions) {
       const at = withCapacitanceFactor(switched, model, condition.capacitancePercent / 100);
-      const c = dutyCase(solveOrders(at.board, at.model, condition.loads === 'off'), at.model.bank!, steps, combinationLabel(bank, steps), limits, condition);
+      const orders = solveOrders(at.board, at.model, condition.loads === 'off', condition.otherBanks === 'off');
+      const c = dutyCase(orders, at.model.bank!, steps, combinationLabel(bank, steps), limits, condition);
       if (!c) continue;
-      if (condition.capacitancePercent === 100 && condition.loads === 'as given') nominalCases.push(c);
+      if (condition.capacitancePercent === 100 && condition.loads === 'as given' && condition.otherBanks !== 'off') nominalCases.push(c);
       highestCapacitorVoltageV = Math.max(highestCapacitorVoltageV, c.capacitorVoltageV);
       if (!worst || ratio(c) > ratio(worst)) worst = c;
     }
@@ -157,7 +164,7 @@ export function capacitorDuty(board: Board, model: HarmonicModel, solveOrders: D
   };
 }
 
-export function assumptions(board: Board, model: HarmonicModel): string[] {
+export function assumptions(board: Board, model: HarmonicModel, otherBanks = false): string[] {
   const forms = new Set(model.loads.flatMap((l) => (l.kind === 'linear' ? [l.form] : [])));
   const words = regionWords(conventionsOf(board).region, board.system);
   return [
@@ -169,7 +176,7 @@ export function assumptions(board: Board, model: HarmonicModel): string[] {
     `source and feeder resistance ${model.resistance === 'constant' ? 'constant with frequency' : '× √h (skin effect)'}; reactances × h (inductive) or / h (capacitive)`,
     ...(model.bank
       ? [
-          `capacitor duty: every bank state at capacitance −${model.capacitanceTolerance.minusPercent} %, nominal and +${model.capacitanceTolerance.plusPercent} %, with the loads as given and with every load off (the highest voltage; a controller normally switches steps off at light load, so that row covers a step left on)`,
+          `capacitor duty: every bank state at capacitance −${model.capacitanceTolerance.minusPercent} %, nominal and +${model.capacitanceTolerance.plusPercent} %, with the loads as given and with every load off (the highest voltage; a controller normally switches steps off at light load, so that row covers a step left on)${otherBanks ? ', each with every other bank fully on and with every other bank out of service' : ''}`,
         ]
       : []),
     model.background.length ? 'background supply distortion at each phase with h × the phase angle of its EMF' : 'no background supply distortion (the supply EMF is sinusoidal)',

@@ -19,14 +19,15 @@ import { boardOfInstallation, installationOf } from '../network/installationMode
 import { solveInstallationNetwork, type InstallationSolution, type SolveOptions } from '../network/solveNetwork.js';
 import { addInstalledBank, ordersPresent, resolveHarmonicModel, type BankModel, type HarmonicModel } from './harmonicModel.js';
 import type { HarmonicLoadSpec, InstallationHarmonicsSectionSpec } from './harmonicsSpec.js';
-import type { BoardHarmonics, BoardScan, InstallationHarmonicsReport, InstallationHarmonicsWarning } from './harmonicsResult.js';
+import type { BoardHarmonics, BoardScan, HarmonicsWarning, InstallationHarmonicsReport, InstallationHarmonicsWarning, JointScan, ResonanceScan } from './harmonicsResult.js';
 import { solveInstallationAtOrder } from './installationAtOrder.js';
 import { readLines, readLineToLine, type OrderSolution } from './readHarmonics.js';
 import { combinationLabel, scanResonance } from './scanResonance.js';
 import { createInstallationScanEvaluator } from './scanEvaluator.js';
-import { withInstallationLoadsOff } from './dutyConditions.js';
+import { withInstallationLoadsOff, withOtherBanksOff } from './dutyConditions.js';
+import { scanJointResonance } from './scanJointResonance.js';
 import { checkVoltageDistortion } from './voltageDistortion.js';
-import { harmonicsCautions } from './harmonicsWording.js';
+import { bankStateWords, harmonicsAssumptionText, harmonicsCautions, harmonicsWarningText } from './harmonicsWording.js';
 import {
   assumptions,
   boardPowerFactor,
@@ -89,12 +90,16 @@ function solveOrders(installation: Installation, models: readonly HarmonicModel[
   return { fundamental, solved: ordersOf(models).map((order) => ({ order, solution: solveInstallationAtOrder(fundamental, models, order) })) };
 }
 
+/** Per board, its bank's parts (load numbers): the fixed part and every step. */
+const bankPartsOf = (models: readonly HarmonicModel[]) => models.map((m) => (m.bank ? [...(m.bank.fixedLoad === null ? [] : [m.bank.fixedLoad]), ...m.bank.stepLoads] : []));
+
 /** The duty solver of bank board `b`: the whole installation with that board as the bank state has it. */
 function installationDutySolver(models: readonly HarmonicModel[], b: number, solve?: SolveOptions): DutySolver {
-  return (board, model, loadsOff) => {
+  return (board, model, loadsOff, otherBanksOff) => {
     const { installation } = installationOf(board);
     const at = models.map((m, i) => (i === b ? model : m));
-    const { fundamental, solved } = solveOrders(loadsOff ? withInstallationLoadsOff(installation) : installation, at, solve);
+    const switched = otherBanksOff ? withOtherBanksOff(installation, bankPartsOf(models), b) : installation;
+    const { fundamental, solved } = solveOrders(loadsOff ? withInstallationLoadsOff(switched) : switched, at, solve);
     return boardOrders(b, fundamental, solved);
   };
 }
@@ -105,14 +110,31 @@ function depthOf(installation: Installation, b: number): number {
   return depth;
 }
 
-function installationAssumptions(main: Board, models: readonly HarmonicModel[], banks: readonly number[]): string[] {
+function installationAssumptions(main: Board, models: readonly HarmonicModel[], banks: readonly number[], scans: readonly BoardScan[]): string[] {
   // The single-board wording, with every board's load forms and any bank.
   const merged: HarmonicModel = { ...models[0]!, loads: models.flatMap((m) => m.loads), bank: models.find((m) => m.bank)?.bank ?? null };
   return [
-    ...assumptions(main, merged),
+    ...assumptions(main, merged, banks.length > 1),
     'sub-board feeders per conductor like the service feeder (line and neutral); each feeder neutral carries its boards’ zero-sequence (triplen) current back towards the source',
-    ...(banks.length > 1 ? ['each bank’s scan and duty switch its own steps with every other bank fully on'] : []),
+    ...(banks.length > 1 ? [harmonicsAssumptionText.jointScan, ...scans.flatMap((s) => (s.jointScan && s.jointScan.coverage !== 'controller levels' ? [harmonicsAssumptionText.jointScanReduced(s.board, s.jointScan)] : []))] : []),
   ];
+}
+
+/**
+ * One warning per checked order that some state of this bank comes within ±10 % of only with another
+ * bank switched — that state clear of it with every other bank on, where the scan's own warning
+ * covers it — naming the state whose peak is nearest.
+ */
+function jointResonanceWarnings(board: string, scan: ResonanceScan, joint: JointScan): HarmonicsWarning[] {
+  return scan.checkedOrders.flatMap((o) => {
+    const hits = joint.combinations.flatMap((c, k) =>
+      scan.combinations[k]!.nearOrders.includes(o) ? [] : c.nearOrders.filter((n) => n.order === o).map((n) => ({ label: c.label, peak: n.peak })),
+    );
+    if (hits.length === 0) return [];
+    const closest = hits.reduce((b, x) => (Math.abs(x.peak.order - o) < Math.abs(b.peak.order - o) ? x : b));
+    const states = new Set(hits.map((x) => x.label)).size;
+    return [{ code: 'resonance-other-banks', message: harmonicsWarningText.resonanceOtherBanks(bankStateWords(board, closest.label), closest.peak.otherBanks, closest.peak.order, o, states - 1), value: closest.peak.order, threshold: o }];
+  });
 }
 
 /** An installation ready for its harmonic study: the banks added as loads of their boards, and every board's model. */
@@ -192,10 +214,13 @@ export function studyInstallationHarmonicsSpec(spec: HarmonicsInstallationSpec, 
   const scanned = bankBoards.length ? [...bankBoards].sort((a, b) => a - b) : [0];
   const checked = checkedOrders(ordersOf(models));
   const scans = scanned.map((b): BoardScan => {
-    const scan = scanResonance(fundamental.boards[b]!, models[b]!, { ...checked, ...(options.scanOrders ? { grid: options.scanOrders } : {}) }, createInstallationScanEvaluator(fundamental, models, b));
-    const duty = capacitorDuty(fundamental.boards[b]!.board, models[b]!, installationDutySolver(models, b, options.solve));
+    const evaluator = createInstallationScanEvaluator(fundamental, models, b);
+    const scan = scanResonance(fundamental.boards[b]!, models[b]!, { ...checked, ...(options.scanOrders ? { grid: options.scanOrders } : {}) }, evaluator);
+    const jointScan = scanJointResonance(fundamental, models, evaluator, { grid: scan.orders, checkedOrders: scan.checkedOrders, ...(options.jointStateLimit !== undefined ? { stateLimit: options.jointStateLimit } : {}) });
+    const duty = capacitorDuty(fundamental.boards[b]!.board, models[b]!, installationDutySolver(models, b, options.solve), bankBoards.length > 1);
     warnings.push(...harmonicsWarnings({ scan, neutral: null, voltageDistortion: null, duty, tdd: null }, label).map((w) => ({ ...w, board: names[b]! })));
-    return { board: names[b]!, scan, capacitorDuty: duty };
+    if (jointScan) warnings.push(...jointResonanceWarnings(names[b]!, scan, jointScan).map((w) => ({ ...w, board: names[b]! })));
+    return { board: names[b]!, scan, jointScan, capacitorDuty: duty };
   });
   const tdd = tddCheck(main, models[0]!, boards[0]!.lines);
   warnings.push(...harmonicsWarnings({ scan: null, neutral: null, voltageDistortion: null, duty: null, tdd }, label).map((w) => ({ ...w, board: null })));
@@ -212,7 +237,7 @@ export function studyInstallationHarmonicsSpec(spec: HarmonicsInstallationSpec, 
     boards,
     tdd,
     scans,
-    assumptions: installationAssumptions(installation.main, models, bankBoards),
+    assumptions: installationAssumptions(installation.main, models, bankBoards, scans),
     warnings,
     cautions: harmonicsCautions(regionWords(conventionsOf(main).region, main.system).groundWord),
   };

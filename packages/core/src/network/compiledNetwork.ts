@@ -19,7 +19,7 @@ import { NumericalError } from '../errors.js';
 import type { ComplexValue } from '../complex.js';
 import { leastDeterminedUnknown, solveComplexSystem } from '../_internal/complexLu.js';
 import { analysePattern, factorInPlace, forwardInOrder, substituteInOrder, type SparsePattern } from '../_internal/sparseComplexLu.js';
-import { factorRealInPlace, solveRealFactored } from '../_internal/denseRealLu.js';
+import { factorRealInPlace, invertReal3InPlace, multiplyReal3, solveRealFactored } from '../_internal/denseRealLu.js';
 import { LoadPortReduction } from './loadPortReduction.js';
 import { REFERENCE, type Circuit } from './circuit.js';
 import { resolveSolveOptions, type ResolvedSolveOptions, type SolveOptions } from './solveOptions.js';
@@ -110,6 +110,8 @@ export class CompiledNetwork {
   private readonly zipZ: Float64Array;
   private readonly zipI: Float64Array;
   private readonly zipP: Float64Array;
+  /** 1/vNominal² per branch (vNominal is fixed at compile time). */
+  private readonly inverseSquareNominal: Float64Array;
   private readonly allImpedance: boolean;
   // Newton on magnitudes (see solveByMagnitudes): one pair per node pair with a voltage-dependent branch.
   private readonly pairCount: number;
@@ -157,6 +159,7 @@ export class CompiledNetwork {
     this.zipZ = new Float64Array(m);
     this.zipI = new Float64Array(m);
     this.zipP = new Float64Array(m);
+    this.inverseSquareNominal = new Float64Array(m);
     this.bFrom = new Int32Array(m);
     this.bTo = new Int32Array(m);
     let allImpedance = true;
@@ -168,6 +171,7 @@ export class CompiledNetwork {
       this.zipZ[k] = b.zip.z;
       this.zipI[k] = b.zip.i;
       this.zipP[k] = b.zip.p;
+      this.inverseSquareNominal[k] = 1 / (b.vNominal * b.vNominal);
       this.bFrom[k] = b.from;
       this.bTo[k] = b.to;
       if (b.zip.z !== 1) allImpedance = false;
@@ -700,6 +704,7 @@ export class CompiledNetwork {
         previousChange = change;
       }
       if (reduction) {
+        reduction.loadedTransfer();
         if (!this.prepareJacobian(reduction.inverseRe, reduction.inverseIm, reduction.portCount)) return false;
       } else if (!this.factored) return false;
       else {
@@ -707,7 +712,8 @@ export class CompiledNetwork {
         if (!this.prepareJacobian(this.transferRe, this.transferIm, q)) return false;
       }
       if (!reduction) this.keepVoltages();
-      solveRealFactored(this.jacobian, q, this.pivots, res);
+      if (q === 3) multiplyReal3(this.jacobian, res);
+      else solveRealFactored(this.jacobian, q, this.pivots, res);
       for (let g = 0; g < q; g++) {
         const next = mag[g]! + res[g]!;
         if (!(next > 0)) return false;
@@ -725,45 +731,62 @@ export class CompiledNetwork {
    */
   private admittancesAtMagnitudes(threshold: number, slopes: boolean): void {
     const q = this.pairCount;
-    this.held = false;
+    const slopeRe = this.slopeRe;
+    const slopeIm = this.slopeIm;
+    const magnitude = this.magnitude;
+    const pairOf = this.pairOf;
+    const portOf = this.portOf;
+    const vNominal = this.vNominal;
+    const inverseSquare = this.inverseSquareNominal;
+    const zipZ = this.zipZ;
+    const zipI = this.zipI;
+    const zipP = this.zipP;
+    const powerRe = this.powerRe;
+    const powerIm = this.powerIm;
+    let held = false;
     if (slopes)
       for (let g = 0; g < q; g++) {
-        this.slopeRe[g] = 0;
-        this.slopeIm[g] = 0;
+        slopeRe[g] = 0;
+        slopeIm[g] = 0;
       }
     const ports = this.reduction;
-    if (ports !== null)
-      for (let port = 0; port < ports.portCount; port++) {
-        ports.admittanceRe[port] = 0;
-        ports.admittanceIm[port] = 0;
+    const portRe = ports === null ? null : ports.admittanceRe;
+    const portIm = ports === null ? null : ports.admittanceIm;
+    if (portRe !== null && portIm !== null)
+      for (let port = 0; port < portRe.length; port++) {
+        portRe[port] = 0;
+        portIm[port] = 0;
       }
     for (let k = 0; k < this.branchCount; k++) {
-      const v0 = this.vNominal[k]!;
-      const g = this.pairOf[k]!;
+      const v0 = vNominal[k]!;
+      const g = pairOf[k]!;
       // As updateAdmittances: a dead branch at zero volts; a constant-impedance one draws the same at any voltage.
-      const v = g >= 0 ? this.magnitude[g]! : this.bActive[k] ? v0 : 0;
+      const v = g >= 0 ? magnitude[g]! : this.bActive[k] ? v0 : 0;
       const floor = threshold * v0;
-      if (g >= 0 && v <= floor) this.held = true;
+      if (g >= 0 && v <= floor) held = true;
       const ratio = v0 / Math.max(v, floor);
-      const zi = this.zipI[k]!;
-      const zp = this.zipP[k]!;
-      const factor = (this.zipZ[k]! + zi * ratio + zp * ratio * ratio) / (v0 * v0);
-      const sr = this.powerRe[k]!;
-      const si = this.powerIm[k]!;
-      this.admittanceRe[k] = sr * factor;
-      this.admittanceIm[k] = -si * factor;
-      const port = this.portOf[k]!;
-      if (ports !== null && port >= 0) {
-        ports.admittanceRe[port] = ports.admittanceRe[port]! + sr * factor;
-        ports.admittanceIm[port] = ports.admittanceIm[port]! - si * factor;
+      const zi = zipI[k]!;
+      const zp = zipP[k]!;
+      const factor = (zipZ[k]! + zi * ratio + zp * ratio * ratio) * inverseSquare[k]!;
+      const yr = powerRe[k]! * factor;
+      const yi = -powerIm[k]! * factor;
+      this.admittanceRe[k] = yr;
+      this.admittanceIm[k] = yi;
+      const port = portOf[k]!;
+      if (portRe !== null && portIm !== null && port >= 0) {
+        portRe[port] = portRe[port]! + yr;
+        portIm[port] = portIm[port]! + yi;
       }
       if (slopes && g >= 0 && v > floor) {
-        const slope = -(zi * ratio + 2 * zp * ratio * ratio) / (v * v0 * v0);
-        this.slopeRe[g] = this.slopeRe[g]! + sr * slope;
-        this.slopeIm[g] = this.slopeIm[g]! - si * slope;
+        // dY/dm = −S̄·(i·ratio + 2p·ratio²)/(m·v0²), and 1/m = ratio/v0 here.
+        const slope = -(zi + 2 * zp * ratio) * ratio * ratio * inverseSquare[k]! / v0;
+        slopeRe[g] = slopeRe[g]! + powerRe[k]! * slope;
+        slopeIm[g] = slopeIm[g]! - powerIm[k]! * slope;
       }
     }
+    this.held = held;
   }
+
 
   /** The right-hand side into the reduction: its sources alone (known since compile time) unless a caller injects current. */
   private openCircuit(reduction: LoadPortReduction): void {
@@ -881,12 +904,14 @@ export class CompiledNetwork {
   }
 
   /**
-   * At the last solve, with `transfer` holding Z between the pairs there: φ', the
-   * contraction check, and the factors of I − φ'. dv_g/dm_j = −Z(g, j)·(dY_j/dm)·v_j.
+   * At the last solve, with `z` holding Z between the pairs there (row stride
+   * `stride`): φ', the contraction check, and the factors of I − φ' (its inverse, for
+   * three pairs). dv_g/dm_j = −Z(g, j)·(dY_j/dm)·v_j.
    * False when the fixed-point iteration would not contract there, or I − φ' is singular.
    */
   private prepareJacobian(zRe: Float64Array, zIm: Float64Array, stride: number): boolean {
     const q = this.pairCount;
+    if (q === 3) return this.prepareThreePairJacobian(zRe, zIm, stride);
     for (let g = 0; g < q; g++) {
       // c_g = (dY_g/dm)·v_g: dv_h/dm_g = −Z(h, g)·c_g.
       const ur = this.pairRe[g]!;
@@ -912,7 +937,68 @@ export class CompiledNetwork {
       }
       if (!(rowSum < CONTRACTION_LIMIT)) return false;
     }
-    return factorRealInPlace(jac, q, this.pivots);
+    // Three pairs (the commonest board): the inverse itself, applied by `multiplyReal3`.
+    return q === 3 ? invertReal3InPlace(jac) : factorRealInPlace(jac, q, this.pivots);
+  }
+
+  /**
+   * `prepareJacobian` for three pairs (the commonest board: a load from each phase to
+   * neutral), written out: 3 × 3 loops cost more than the arithmetic in them, and
+   * this runs for every Newton step. Leaves (I − φ')⁻¹ in `jacobian`.
+   */
+  private prepareThreePairJacobian(zRe: Float64Array, zIm: Float64Array, s: number): boolean {
+    const pRe = this.pairRe;
+    const pIm = this.pairIm;
+    const u0r = pRe[0]!;
+    const u0i = pIm[0]!;
+    const u1r = pRe[1]!;
+    const u1i = pIm[1]!;
+    const u2r = pRe[2]!;
+    const u2i = pIm[2]!;
+    const n0 = -1 / Math.sqrt(u0r * u0r + u0i * u0i);
+    const n1 = -1 / Math.sqrt(u1r * u1r + u1i * u1i);
+    const n2 = -1 / Math.sqrt(u2r * u2r + u2i * u2i);
+    // c_j = (dY_j/dm)·v_j
+    const sRe = this.slopeRe;
+    const sIm = this.slopeIm;
+    const c0r = sRe[0]! * u0r - sIm[0]! * u0i;
+    const c0i = sRe[0]! * u0i + sIm[0]! * u0r;
+    const c1r = sRe[1]! * u1r - sIm[1]! * u1i;
+    const c1i = sRe[1]! * u1i + sIm[1]! * u1r;
+    const c2r = sRe[2]! * u2r - sIm[2]! * u2i;
+    const c2i = sRe[2]! * u2i + sIm[2]! * u2r;
+    // φ'(g, j) = −Re(conj(v_g)·Z(g, j)·c_j)/|v_g|
+    const phi = (ur: number, ui: number, n: number, k: number, cr: number, ci: number) => {
+      const zr = zRe[k]!;
+      const zi = zIm[k]!;
+      return (ur * (zr * cr - zi * ci) + ui * (zr * ci + zi * cr)) * n;
+    };
+    const f00 = phi(u0r, u0i, n0, 0, c0r, c0i);
+    const f01 = phi(u0r, u0i, n0, 1, c1r, c1i);
+    const f02 = phi(u0r, u0i, n0, 2, c2r, c2i);
+    const f10 = phi(u1r, u1i, n1, s, c0r, c0i);
+    const f11 = phi(u1r, u1i, n1, s + 1, c1r, c1i);
+    const f12 = phi(u1r, u1i, n1, s + 2, c2r, c2i);
+    const f20 = phi(u2r, u2i, n2, 2 * s, c0r, c0i);
+    const f21 = phi(u2r, u2i, n2, 2 * s + 1, c1r, c1i);
+    const f22 = phi(u2r, u2i, n2, 2 * s + 2, c2r, c2i);
+    if (
+      !(Math.abs(f00) + Math.abs(f01) + Math.abs(f02) < CONTRACTION_LIMIT) ||
+      !(Math.abs(f10) + Math.abs(f11) + Math.abs(f12) < CONTRACTION_LIMIT) ||
+      !(Math.abs(f20) + Math.abs(f21) + Math.abs(f22) < CONTRACTION_LIMIT)
+    )
+      return false;
+    const jac = this.jacobian;
+    jac[0] = 1 - f00;
+    jac[1] = -f01;
+    jac[2] = -f02;
+    jac[3] = -f10;
+    jac[4] = 1 - f11;
+    jac[5] = -f12;
+    jac[6] = -f20;
+    jac[7] = -f21;
+    jac[8] = 1 - f22;
+    return invertReal3InPlace(jac);
   }
 
   /**

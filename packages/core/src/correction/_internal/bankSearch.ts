@@ -197,16 +197,25 @@ const better = (a: readonly number[], b: readonly number[]) => {
   return false;
 };
 
+/** `better` on two four-entry keys held as numbers (the trim search compares thousands of them). */
+function betterOfFour(a0: number, a1: number, a2: number, a3: number, b0: number, b1: number, b2: number, b3: number): boolean {
+  const differs = (a: number, b: number) => Math.abs(a - b) > 1e-9 * Math.max(1, Math.abs(b));
+  if (differs(a0, b0)) return a0 < b0;
+  if (differs(a1, b1)) return a1 < b1;
+  if (differs(a2, b2)) return a2 < b2;
+  if (differs(a3, b3)) return a3 < b3;
+  return false;
+}
+
 /** The best trim on one branch given the balanced capacitance already there (or none). */
 function bestTrim(branch: number, need: Need, baseF: number, choices: readonly UnitChoice[], rules: SetRules, baseUnits: number): TrimBuild | null {
-  const key = (f: number, trim: TrimBuild | null): number[] => {
-    const tier = tierOf(f, need);
-    const kvar = trim ? trim.count * trim.choice.unit.ratedKvar : 0;
-    const below = trim !== null && kvar < rules.minStepKvar - 1e-9;
-    return [Number(below), tier, Math.round(miss(f, need, tier) * 20), trim ? kvar + rules.unitCostKvar * trim.count : 0];
-  };
+  // Ranked by [step below the minimum, tier, miss in 5 % steps, cost], compared as `better` compares keys.
+  const baseTier = tierOf(baseF, need);
   let best: TrimBuild | null = null;
-  let bestKey = key(baseF, null);
+  let bestBelow = 0;
+  let bestTier = baseTier;
+  let bestMiss = Math.round(miss(baseF, need, baseTier) * 20);
+  let bestCost = 0;
   const room = rules.maxUnitsPerBranch - baseUnits;
   // What the window's ends ask of a trim above the balanced part (null: unknown). Called for every
   // balanced build on every branch, so the counts near them (`countsNear`, capped at the room left,
@@ -226,11 +235,15 @@ function bestTrim(branch: number, need: Need, baseF: number, choices: readonly U
     }
     for (const count of counts) {
       if (count < 1) continue;
-      const trim = { branch, choice, count };
-      const k = key(baseF + count * choice.elementF, trim);
-      if (better(k, bestKey)) {
-        best = trim;
-        bestKey = k;
+      const f = baseF + count * choice.elementF;
+      const tier = tierOf(f, need);
+      const kvar = count * choice.unit.ratedKvar;
+      const below = kvar < rules.minStepKvar - 1e-9 ? 1 : 0;
+      const missed = Math.round(miss(f, need, tier) * 20);
+      const cost = kvar + rules.unitCostKvar * count;
+      if (betterOfFour(below, tier, missed, cost, bestBelow, bestTier, bestMiss, bestCost)) {
+        best = { branch, choice, count };
+        [bestBelow, bestTier, bestMiss, bestCost] = [below, tier, missed, cost];
       }
     }
   }
@@ -259,13 +272,18 @@ export function searchSet(
       bestKey = k;
     }
   };
+  const edges = [...needs, ...equalNeeds].flatMap((need) => [need.minF, need.nominalF, need.maxF, need.limitF]);
+  const countsOf = new Map<UnitChoice, number[]>();
   const balancedCounts = (choice: UnitChoice) => {
-    const edges = [...needs, ...equalNeeds].flatMap((need) => [need.minF, need.nominalF, need.maxF, need.limitF]);
+    let counts = countsOf.get(choice);
+    if (counts) return counts;
     const near = countsNear(edges, choice.elementF);
     // Multiples of the step counts wanted, so equal steps are within reach; and the
     // largest build within the unit cap is always a candidate (never dropped for being over it).
     const multiples = near.flatMap((c) => [2, 3, 4].flatMap((m) => [Math.floor(c / m) * m, Math.ceil(c / m) * m]));
-    return [...new Set([...near, ...multiples, 1].map((c) => Math.min(c, rules.maxUnitsPerBranch)))].filter((c) => c >= 1);
+    counts = [...new Set([...near, ...multiples, 1].map((c) => Math.min(c, rules.maxUnitsPerBranch)))].filter((c) => c >= 1);
+    countsOf.set(choice, counts);
+    return counts;
   };
   const withTrims = (balanced: { choice: UnitChoice; count: number } | null) => {
     const baseF = balanced ? balanced.count * balanced.choice.elementF : 0;

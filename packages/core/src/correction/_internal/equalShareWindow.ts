@@ -6,9 +6,12 @@
  * The per-branch requirements of the least-kvar sizing are unequal (a delta
  * branch also moves active current between its lines), so they say little about
  * what an equal bank — the one an ordinary controller drives — can do; this does.
+ * Both are bisections to 1e-12 of t; threshold oracles (thresholdOracle.ts) answer
+ * their questions, solving only those near the threshold.
  */
 import type { BoardProbe, ProbeState } from './boardProbe.js';
 import type { LineBand } from './sizeForLineTargets.js';
+import { createThresholdOracle, type SideReading } from './thresholdOracle.js';
 
 export interface EqualShareWindow {
   /** Per-branch kvar at nominal voltage; null when no equal bank meets every target below the limit. */
@@ -28,30 +31,57 @@ export function equalShareWindow(probe: BoardProbe, start: ProbeState, targetBan
   const weights = start.lineS.map((s) => Math.max(s, 1e-6 * Math.max(...start.lineS)));
   const meets = (s: ProbeState) => s.lineQ.every((q, k) => !Number.isFinite(targetBands[k]!.high) || q - targetBands[k]!.high * Math.abs(s.lineP[k]!) <= 1e-9 * weights[k]!);
   const within = (s: ProbeState) => s.lineQ.every((q, k) => q - limitBands[k]!.low * Math.abs(s.lineP[k]!) >= -1e-9 * weights[k]!);
+  // Continuous margins beside the two tests, > 0 below their thresholds (less kvar), for the oracles to interpolate on.
+  const withinMargin = (s: ProbeState) => Math.min(...s.lineQ.map((q, k) => (q - limitBands[k]!.low * Math.abs(s.lineP[k]!)) / weights[k]! + 1e-9));
+  const shortMargin = (s: ProbeState) =>
+    Math.max(-1, ...s.lineQ.map((q, k) => (Number.isFinite(targetBands[k]!.high) ? (q - targetBands[k]!.high * Math.abs(s.lineP[k]!)) / weights[k]! - 1e-9 : -1)));
   const scale = start.lineS.reduce((a, b) => a + b, 0);
   if (scale === 0) return { minKvar: 0, limitKvar: 0 };
+  // Each trial solve answers both bisections: t_limit's (within the lower bounds below it) and
+  // t_min's (short of the target below it, i.e. not meeting it). Only the readings are kept, not the
+  // solved states (which would keep every trial's solution alive).
+  const targetReading = (s: ProbeState): SideReading => ({ low: !meets(s), margin: shortMargin(s) });
+  const readings = new Map<number, { limit: SideReading; target: SideReading }>();
+  const solved = (t: number) => {
+    let r = readings.get(t);
+    if (!r) {
+      const s = t === 0 ? start : at(t);
+      readings.set(t, (r = { limit: { low: within(s), margin: withinMargin(s) }, target: targetReading(s) }));
+    }
+    return r;
+  };
+  // Round-off in the solves blurs both tests over about 4e-13 of the board's kVA either side of their
+  // thresholds (the most seen on the shipped examples, on an installation's sub-board): answers are
+  // inferred only from 250 times that away.
+  const doubt = 1e-10 * scale;
+  const limitSide = createThresholdOracle((t) => solved(t).limit, doubt);
+  const targetSide = createThresholdOracle((t) => solved(t).target, doubt);
+  limitSide.isLow(0);
   // t_limit by doubling, then bisection.
   let ok = 0;
   let bad = Math.max(1e-3 * scale, start.lineQ.reduce((a, q) => a + Math.max(0, q), 0) / n);
-  while (within(at(bad))) {
+  while (limitSide.isLow(bad)) {
     ok = bad;
     bad *= 2;
     if (bad > 1e3 * scale) break;
   }
+  limitSide.narrow();
   for (let i = 0; i < BISECTIONS && bad - ok > 1e-12 * bad; i++) {
     const mid = (ok + bad) / 2;
-    if (within(at(mid))) ok = mid;
+    if (limitSide.isLow(mid)) ok = mid;
     else bad = mid;
   }
   const limitKvar = ok;
   if (limitOnly) return { minKvar: null, limitKvar };
   if (meets(start)) return { minKvar: 0, limitKvar };
-  if (!meets(at(limitKvar))) return { minKvar: null, limitKvar };
+  if (solved(limitKvar).target.low) return { minKvar: null, limitKvar };
+  for (const [t, r] of readings) targetSide.record(t, r.target);
+  targetSide.narrow();
   let lo = 0;
   let hi = limitKvar;
   for (let i = 0; i < BISECTIONS && hi - lo > 1e-12 * hi; i++) {
     const mid = (lo + hi) / 2;
-    if (meets(at(mid))) hi = mid;
+    if (!targetSide.isLow(mid)) hi = mid;
     else lo = mid;
   }
   return { minKvar: hi, limitKvar };

@@ -7,6 +7,7 @@
 import type {
   CapacitorDuty,
   HarmonicLineReading,
+  JointScan,
   LoadSpectrumNote,
   NeutralCheck,
   ResonanceScan,
@@ -14,6 +15,7 @@ import type {
   VoltageDistortionCheck,
 } from '../../harmonics/harmonicsResult.js';
 import { conditionWords } from '../../harmonics/dutyConditions.js';
+import { jointCoverageWords, nearestWords } from '../../harmonics/harmonicsWording.js';
 import type { PhaseLabeller } from '../../board/conventions/phaseNames.js';
 import { fixed } from '../svgText.js';
 import { renderImpedanceScan } from '../renderImpedanceScan.js';
@@ -129,6 +131,36 @@ export function scanBlocks(scan: ResonanceScan, place: ScanPlace): ReportBlock[]
   return blocks;
 }
 
+/**
+ * The resonance with the other banks switched: per state of this bank, the peaks over their states,
+ * the nearest a peak comes to a checked order and in which state, and the orders within ±10 %.
+ */
+export function jointScanBlocks(joint: JointScan, place: Pick<ScanPlace, 'seenFrom'>): ReportBlock[] {
+  return [
+    {
+      kind: 'table',
+      caption: `Resonance${place.seenFrom ?? ''} with the other banks switched`,
+      columns: [
+        { label: 'Bank state' },
+        { label: 'kvar on', align: 'right' },
+        { label: 'Peaks over their states (h)' },
+        { label: 'Nearest a checked order' },
+        { label: 'Other banks then' },
+        { label: 'Near orders' },
+      ],
+      rows: joint.combinations.map((c) => [
+        c.label,
+        fixed(c.capacitorKvar, 1),
+        c.lowestPeak && c.highestPeak ? `${fixed(c.lowestPeak.order, 1)} … ${fixed(c.highestPeak.order, 1)}` : 'none',
+        c.nearest ? nearestWords(c.nearest) : '—',
+        c.nearest?.otherBanks ?? '—',
+        c.nearOrders.map((n) => n.order).join(', ') || '—',
+      ]),
+      note: `${jointCoverageWords(joint)}. The table above is the same bank with every other bank fully on.`,
+    },
+  ];
+}
+
 /** The capacitor units' duty with harmonics in their worst state and condition. */
 export function dutyBlocks(d: CapacitorDuty, label: PhaseLabeller): ReportBlock[] {
   const w = d.worst;
@@ -137,7 +169,7 @@ export function dutyBlocks(d: CapacitorDuty, label: PhaseLabeller): ReportBlock[
       kind: 'facts',
       items: [
         ['Capacitor units', `rated ${fixed(d.ratedV, 0)} V; fundamental ${fixed(d.capacitorVoltageV, 1)} V across them${d.detuningPercent ? `; detuned ${fixed(d.detuningPercent, 1)} %` : ''}`],
-        ['Worst state', `${w.label}, branch ${label(w.branch)}, ${conditionWords(w.condition)} (checked at capacitance −${d.capacitanceTolerance.minusPercent} %, nominal and +${d.capacitanceTolerance.plusPercent} %, loads as given and all off)`],
+        ['Worst state', `${w.label}, branch ${label(w.branch)}, ${conditionWords(w.condition)} (checked at capacitance −${d.capacitanceTolerance.minusPercent} %, nominal and +${d.capacitanceTolerance.plusPercent} %, loads as given and all off${d.conditions.some((c) => c.otherBanks) ? ', other banks on and out of service' : ''})`],
         ['Highest capacitor voltage (fundamental)', `${fixed(d.highestCapacitorVoltageV, 1)} V`],
         ['V rms / V peak / I rms / kvar (per unit)', `${fixed(w.figures.voltageRms, 2)} / ${fixed(w.figures.voltagePeak, 2)} / ${fixed(w.figures.currentRms, 2)} / ${fixed(w.figures.kvar, 2)}`],
         ['Duty verdict', d.ok ? 'within limits in every state' : 'LIMIT EXCEEDED in at least one state'],

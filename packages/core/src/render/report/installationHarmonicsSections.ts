@@ -9,7 +9,7 @@ import type { BoardHarmonics, InstallationHarmonicsReport } from '../../harmonic
 import { labellerOf, type PhaseLabeller } from '../../board/conventions/phaseNames.js';
 import { fixed } from '../svgText.js';
 import type { ReportBlock, ReportSection } from './reportDocument.js';
-import { dutyBlocks, harmonicCurrentTable, harmonicVoltageTable, neutralBlocks, orDash, scanBlocks, spectraList, tddTable, voltageDistortionTable } from './harmonicsBlocks.js';
+import { dutyBlocks, harmonicCurrentTable, jointScanBlocks, harmonicVoltageTable, neutralBlocks, orDash, scanBlocks, spectraList, tddTable, voltageDistortionTable } from './harmonicsBlocks.js';
 
 /** The bus voltage with the highest THD, as `4.1 % L1-N`. */
 function worstBusWords(b: BoardHarmonics, label: PhaseLabeller): string {
@@ -81,7 +81,9 @@ export function installationHarmonicsSections(r: InstallationHarmonicsReport, id
     if (b.neutral) blocks.push(...neutralBlocks(b.neutral));
     const scan = r.scans.find((s) => s.board === b.board);
     if (scan) {
-      blocks.push(...scanBlocks(scan.scan, { seenFrom: ` seen from ${b.board}`, figureName: `${id}-impedance-scan` }));
+      const othersOn = scan.jointScan ? ', every other bank fully on' : '';
+      blocks.push(...scanBlocks(scan.scan, { seenFrom: ` seen from ${b.board}${othersOn}`, figureName: `${id}-impedance-scan` }));
+      if (scan.jointScan) blocks.push(...jointScanBlocks(scan.jointScan, { seenFrom: ` seen from ${b.board}` }));
       if (scan.capacitorDuty) blocks.push(...dutyBlocks(scan.capacitorDuty, label));
     }
     sections.push({ id: `${id}-harmonics`, title: `Harmonics — ${b.board}`, blocks });

@@ -1,0 +1,25 @@
+/**
+ * `trivar correct` on a board file with harmonic data: the bank checked by scan and duty, with
+ * detuned variants. Its own module, imported by correct.ts only for such files, so a plain
+ * correction does not load the harmonic study.
+ */
+import { compareWithHarmonics, correctWithHarmonics, type Board, type BoardSpec, type HarmonicComparison, type HarmonicCorrectionReport } from '@trivar/core';
+import type { CliIo } from '../io.js';
+import { writeResult } from '../writeResult.js';
+import { renderCorrectionReport } from '../format/correctionReport.js';
+import { renderComparisonHarmonics, renderCorrectionHarmonics } from '../format/correctionHarmonicsReport.js';
+import { renderComparisonReport } from '../format/comparisonReport.js';
+
+/** Every arrangement compared, each with its harmonic check; writes the result. */
+export function writeComparisonWithHarmonics(spec: BoardSpec, board: Board, study: Record<string, unknown>, json: boolean | undefined, io: CliIo): HarmonicComparison {
+  const comparison = compareWithHarmonics(spec, board, study);
+  writeResult(io, comparison, json, (c: HarmonicComparison) => renderComparisonReport(c) + renderComparisonHarmonics(c.harmonics));
+  return comparison;
+}
+
+/** One arrangement with its harmonic check; writes the result. */
+export function writeCorrectionWithHarmonics(spec: BoardSpec, board: Board, study: Record<string, unknown>, json: boolean | undefined, io: CliIo): HarmonicCorrectionReport {
+  const checked = correctWithHarmonics(spec, board, study);
+  writeResult(io, checked, json, (r: HarmonicCorrectionReport) => renderCorrectionReport(r) + renderCorrectionHarmonics(r.harmonics));
+  return checked;
+}
