@@ -118,6 +118,25 @@ describe('trivar profile on an installation', () => {
     expect(runTrivar(['profile', FILE, '--data', DATA, '--correction-bank']).stderr).toContain('no correction section naming an arrangement');
   });
 
+  it('writes the summary and per-interval CSV with a board to every row and column set', () => {
+    const summary = join(dir, 'summary.csv');
+    const intervals = join(dir, 'intervals.csv');
+    const r = runTrivar(['profile', FILE, '--data', DATA, '--summary-csv', summary, '--intervals-csv', intervals]);
+    expect(r.code).toBe(0);
+    const peak = JSON.parse(json.stdout).boards[1].before.conductors[0].maxA;
+    const rows = readFileSync(summary, 'utf8').trim().split('\n');
+    expect(rows[0]).toBe('board,figure,where,before,after,unit');
+    const potteryPeak = rows.find((l) => l.startsWith('Pottery,peak current,line A,'))!.split(',');
+    expect(Number(potteryPeak[3])).toBeCloseTo(peak, 5);
+    const lines = readFileSync(intervals, 'utf8').trim().split('\n');
+    expect(lines).toHaveLength(49);
+    const head = lines[0]!.split(',');
+    expect(head.slice(0, 3)).toEqual(['time', 'Mill intake: line A A', 'Mill intake: line B A']);
+    const column = head.indexOf('Pottery: line A A');
+    const at2000 = lines.find((l) => l.startsWith('2026-03-10 20:00'))!.split(',');
+    expect(Number(at2000[column])).toBeCloseTo(peak, 2);
+  });
+
   it('refuses unknown and ambiguous load names, naming the column', () => {
     const bad = join(dir, 'bad.csv');
     writeFileSync(bad, 'time,Kiln [x],Pottery/Press [x]\n2026-03-10T00:00,1,1\n');

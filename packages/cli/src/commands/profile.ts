@@ -123,7 +123,7 @@ export async function runProfile(file: string, options: ProfileCommandOptions, i
   const input = readBoardText(await io.readSource(file));
   if (isInstallationInput(input)) {
     const { runProfileInstallation } = await import('./profileInstallation.js');
-    return runProfileInstallation(input, options, io);
+    return runProfileInstallation(input, options, io, [file]);
   }
   if (options.board !== undefined)
     throw new InputError(

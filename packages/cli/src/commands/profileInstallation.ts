@@ -9,6 +9,7 @@ import {
   type SwitchingFromBank,
   installationBoardIndex,
   isKnownTimeZone,
+  labellerOf,
   normaliseInstallation,
   parseInstallation,
   planDrivers,
@@ -22,15 +23,13 @@ import { writeResult } from '../writeResult.js';
 import { readCsvHeader, readIntervalRows } from '../read/intervalCsv.js';
 import { renderInstallationProfileReport } from '../format/installationProfileReport.js';
 import { startProgress } from '../progress.js';
+import { assertNotInput, writeOutputFile } from '../outputFiles.js';
+import { installationIntervalCsv, installationSummaryCsv } from '../format/profileCsv.js';
 import type { ProfileCommandOptions } from './profile.js';
 import { inFileSection } from './correct.js';
 
 /** What installation files do not take yet, by option. */
-const NOT_FOR_INSTALLATIONS: readonly [keyof ProfileCommandOptions, string][] = [
-  ['summaryCsv', '--summary-csv'],
-  ['intervalsCsv', '--intervals-csv'],
-  ['charts', '--charts'],
-];
+const NOT_FOR_INSTALLATIONS: readonly [keyof ProfileCommandOptions, string][] = [['charts', '--charts']];
 
 /**
  * The bank trivar correct designs for the installation (its correction section, on the board
@@ -55,12 +54,13 @@ function designedInstallationBank(spec: ReturnType<typeof parseInstallation>, in
   return { bank: switchingFromBank(selection.steps, selection.controller), board };
 }
 
-export async function runProfileInstallation(input: unknown, options: ProfileCommandOptions, io: CliIo): Promise<InstallationProfileStudy> {
+export async function runProfileInstallation(input: unknown, options: ProfileCommandOptions, io: CliIo, inputs: readonly string[] = []): Promise<InstallationProfileStudy> {
   const spec = parseInstallation(input);
   const { installation } = normaliseInstallation(spec);
   for (const [key, option] of NOT_FOR_INSTALLATIONS)
     if (options[key] !== undefined && options[key] !== false) throw new UsageError(`${option} is not available for installation files yet (single board files only); leave it out to get the per-board report`);
   if (!options.data) throw new UsageError('give the interval data with --data <file.csv> (profile.scenarios are read on single board files only)');
+  assertNotInput([options.summaryCsv, options.intervalsCsv].filter((x): x is string => x !== undefined), [...inputs, options.data]);
   if (options.board !== undefined && !options.bank && !options.correctionBank) throw new UsageError('--board places the bank: give --bank or --correction-bank too');
   if (options.correctionBank && options.bank) throw new UsageError('give either --bank (a bank sized from the profile) or --correction-bank (the correction study\'s bank), not both');
   if (options.correctionBank && options.pf !== undefined)
@@ -107,6 +107,9 @@ export async function runProfileInstallation(input: unknown, options: ProfileCom
   } finally {
     progress.stop();
   }
+  const label = labellerOf(study.result.phaseNames);
+  if (options.summaryCsv) writeOutputFile(options.summaryCsv, installationSummaryCsv(study.result, label));
+  if (options.intervalsCsv) writeOutputFile(options.intervalsCsv, installationIntervalCsv(study, installation.main.nominalLineToNeutralV, label));
   writeResult(io, study.result, options.json, (r) => renderInstallationProfileReport(r, spec.profile?.tariff?.currency ?? 'units'));
   return study;
 }
