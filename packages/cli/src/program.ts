@@ -51,7 +51,9 @@ Exit codes: as for solve, plus
 const PROFILE_EXAMPLES = `
 Interval data: a CSV file whose first column is the time (2025-03-30 02:15, or ISO 8601 with Z or an
 offset) and whose other headers are "<target> [<quantity>]":
-  target    a load name, a group from the board file's profile.groups, or phase A / phase B / phase C
+  target    a load name, a group from the board file's profile.groups, or phase A / phase B / phase C;
+            on an installation file a load on one board by its name, else "<board>/<load>", and
+            "<board>/phase A" for a sub-board's metered phase
   quantity  x (fraction of rating) | kW | kW + kvar | kW + pf | A + pf   (pf < 0 = leading)
 Intervals from 1 s to 1 h. Gaps and repeated times are reported; gaps stay out of every figure
 unless --fill-gaps says how to fill them. Tariff, limits and the bank live under profile: in the
@@ -62,6 +64,7 @@ Examples:
   trivar profile examples/quay-street-flats.yaml --data /tmp/quay-street.csv --time-zone Europe/Dublin
   trivar profile examples/quay-street-flats.yaml --data /tmp/quay-street.csv --bank --charts charts/
   trivar profile board.yaml --data meter.csv --fill-gaps hold --summary-csv summary.csv --json
+  trivar profile examples/osier-mill-studios.yaml --data examples/osier-mill-day.csv --bank --board Pottery
 
 Exit codes: as for solve (3 also for interval data that cannot be read: every bad cell is named
 by row and column)`;
@@ -227,8 +230,8 @@ export function createProgram(io: CliIo, outcome: RunOutcome = { exitCode: EXIT.
 
   program
     .command('profile')
-    .description('run interval data through the board: peaks and percentiles, hours over limits, energy and billing power factor by month, an automatic bank simulated over the year')
-    .argument('<board>', 'board file (YAML or JSON), or - for standard input')
+    .description('run interval data through the board or installation: peaks and percentiles, hours over limits, energy and billing power factor by month, an automatic bank simulated over the year')
+    .argument('<board>', 'board or installation file (YAML or JSON), or - for standard input')
     .option('--data <file>', 'interval data (CSV)')
     .option('--time-zone <name>', 'IANA time zone of times written without an offset, and of calendar months (default UTC)')
     .addOption(new Option('--fill-gaps <how>', 'fill missing intervals (default: leave them out)').choices(['none', 'hold', 'linear']))
@@ -236,6 +239,7 @@ export function createProgram(io: CliIo, outcome: RunOutcome = { exitCode: EXIT.
     .option('--bank', 'simulate an automatic capacitor bank over the profile (profile.bank in the board file sets it up)')
     .option('--correction-bank', "simulate instead the bank trivar correct designs for this board: its steps, fixed part and controller settings (the board file's correction section)")
     .option('--pf <value>', 'target power factor of the bank (0 < pf <= 1; default 0.95)', numberIn(0, 1, 'a power factor above 0 and at most 1'))
+    .option('--board <name>', "installation files: the board the bank goes on (default: the main board, or the correction section's board with --correction-bank)")
     .option('--summary-csv <file>', 'write the summary as CSV')
     .option('--intervals-csv <file>', 'write per-interval results as CSV')
     .option('--charts <dir>', 'write SVG charts (currents, power factor, load duration) into this folder')

@@ -158,6 +158,12 @@ export type { MonthReading } from './profile/monthlyBilling.js';
 export type { ProfileSummary, ConductorSummary, VoltageSummary, WorstInterval, ResolvedLimits } from './profile/summariseFigures.js';
 export type { ProfileStudy, ProfileStudyInput, ProfileStudyOptions, ProfileResult, ProfileBankResult, BankStepRun } from './profile/studyProfile.js';
 export { studyProfile } from './profile/studyProfile.js';
+export type { InstallationColumnPlan } from './profile/installationColumns.js';
+export { planInstallationColumns } from './profile/installationColumns.js';
+export type { InstallationBatchNetwork, InstallationEdge, InstallationKernel } from './profile/installationBatch.js';
+export { compileInstallationBatch, createInstallationKernel, solveInstallationBatch } from './profile/installationBatch.js';
+export type { InstallationProfileInput, InstallationProfileOptions, InstallationProfileBoard, InstallationProfileResult, InstallationProfileStudy } from './profile/studyInstallationProfile.js';
+export { studyInstallationProfile } from './profile/studyInstallationProfile.js';
 export type { ChartSeries, TimeChartInput, DurationChartInput } from './render/profileCharts.js';
 export { renderTimeChart, renderDurationChart } from './render/profileCharts.js';
 

@@ -20,6 +20,9 @@ import {
   studyScenarios,
   type GapFill,
   type ProfileStudy,
+  type InstallationProfileStudy,
+  InputError,
+  isInstallationInput,
 } from '@trivar/core';
 import type { CliIo } from '../io.js';
 import { UsageError } from '../exitCodes.js';
@@ -45,6 +48,8 @@ export interface ProfileCommandOptions {
   readonly intervalsCsv?: string;
   readonly charts?: string;
   readonly threads?: number;
+  /** Installation files: the board the bank goes on (default: the main board). */
+  readonly board?: string;
 }
 
 /**
@@ -114,8 +119,18 @@ export async function computeProfileStudy(spec: ReturnType<typeof parseBoard>, d
   }
 }
 
-export async function runProfile(file: string, options: ProfileCommandOptions, io: CliIo): Promise<ProfileStudy | null> {
-  const spec = parseBoard(readBoardText(await io.readSource(file)));
+export async function runProfile(file: string, options: ProfileCommandOptions, io: CliIo): Promise<ProfileStudy | InstallationProfileStudy | null> {
+  const input = readBoardText(await io.readSource(file));
+  if (isInstallationInput(input)) {
+    const { runProfileInstallation } = await import('./profileInstallation.js');
+    return runProfileInstallation(input, options, io, [file]);
+  }
+  if (options.board !== undefined)
+    throw new InputError(
+      [{ code: 'not_applicable', path: '', expected: 'an installation file (with boards:) for --board', message: '--board applies to installation files (with boards:), and this is a single board' }],
+      'the options do not fit the file',
+    );
+  const spec = parseBoard(input);
   const board = normaliseBoard(spec);
   // Tables, CSV columns and chart series name lines and phases the way the board file does.
   const label = labellerOf(conventionsOf(board).phaseNames);

@@ -110,7 +110,7 @@ function installationCorrectionOf(installation: Installation, section: NonNullab
 }
 
 function installationDocument(raw: unknown, figures: unknown, options: ReportCommandOptions): Reported {
-  if (options.profileData) throw new UsageError("--profile-data applies to a single board file: interval data describe one board; give that board's own file");
+  if (options.profileData) throw new UsageError('--profile-data is read on single board files only; for an installation, trivar profile <file> --data <csv> gives every board\'s figures over the interval data');
   // The hand method works on one board and its own loads; a board inside an installation also carries the
   // boards beyond it and the drops before it, which the hand check's effects do not separate.
   if (figures !== null) throw new UsageError(`--hand-figures: ${HAND_FIGURES_ON_INSTALLATION}`);

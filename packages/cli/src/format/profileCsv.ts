@@ -1,5 +1,5 @@
 /** CSV files of `trivar profile`: the summary (one figure a row) and the per-interval results. */
-import { labellerOf, type PhaseLabeller, type ProfileResult, type ProfileStudy, type ProfileSummary } from '@trivar/core';
+import { labellerOf, type BankStepRun, type InstallationProfileResult, type InstallationProfileStudy, type IntervalFigures, type PhaseLabeller, type ProfileResult, type ProfileStudy, type ProfileSummary } from '@trivar/core';
 
 const cell = (x: string | number | null) => {
   if (x === null) return '';
@@ -10,11 +10,22 @@ const cell = (x: string | number | null) => {
 /** Rows: figure, where, before, after (empty without a bank), unit. */
 /** @param label the board file's phase labels: the `where` column names lines and phases that way */
 export function summaryCsv(r: ProfileResult, label: PhaseLabeller = labellerOf(r.phaseNames)): string {
-  const rows: (string | number | null)[][] = [['figure', 'where', 'before', 'after', 'unit']];
-  const a = r.bank?.after ?? null;
+  const rows: (string | number | null)[][] = [['figure', 'where', 'before', 'after', 'unit'], ...summaryRows(r.before, r.bank?.after ?? null, r.bank?.steps ?? [], label)];
+  return rows.map((row) => row.map(cell).join(',')).join('\n') + '\n';
+}
+
+/** The summary of an installation: the rows of summaryCsv for every board, each after the board's name. */
+export function installationSummaryCsv(r: InstallationProfileResult, label: PhaseLabeller = labellerOf(r.phaseNames)): string {
+  const rows: (string | number | null)[][] = [['board', 'figure', 'where', 'before', 'after', 'unit']];
+  for (const b of r.boards) for (const row of summaryRows(b.before, b.after, r.bank?.board === b.board ? r.bank.steps : [], label)) rows.push([b.board, ...row]);
+  return rows.map((row) => row.map(cell).join(',')).join('\n') + '\n';
+}
+
+function summaryRows(before: ProfileSummary, a: ProfileSummary | null, steps: readonly BankStepRun[], label: PhaseLabeller): (string | number | null)[][] {
+  const rows: (string | number | null)[][] = [];
   const add = (figure: string, where: string, pick: (s: ProfileSummary) => string | number | null, unit: string) =>
-    rows.push([figure, where, pick(r.before), a ? pick(a) : null, unit]);
-  r.before.conductors.forEach((c, k) => {
+    rows.push([figure, where, pick(before), a ? pick(a) : null, unit]);
+  before.conductors.forEach((c, k) => {
     const where = c.conductor === 'N' ? 'neutral' : `line ${label(c.conductor)}`;
     add('peak current', where, (s) => s.conductors[k]!.maxA, 'A');
     add('peak current at', where, (s) => s.conductors[k]!.maxAt, 'local time');
@@ -22,20 +33,20 @@ export function summaryCsv(r: ProfileResult, label: PhaseLabeller = labellerOf(r
     add('P95 current', where, (s) => s.conductors[k]!.p95A, 'A');
     add('hours over limit', where, (s) => s.conductors[k]!.hoursAboveLimit, 'h');
   });
-  r.before.voltages.forEach((v, k) => {
+  before.voltages.forEach((v, k) => {
     add('lowest voltage', `phase ${label(v.phase)}`, (s) => s.voltages[k]!.minPercent, '% of nominal');
     add('highest voltage', `phase ${label(v.phase)}`, (s) => s.voltages[k]!.maxPercent, '% of nominal');
   });
   add('hours below voltage limit', 'board', (s) => s.hoursVoltageLow, 'h');
   add('hours above voltage limit', 'board', (s) => s.hoursVoltageHigh, 'h');
-  if (r.before.unbalance) add('hours above unbalance limit', 'board', (s) => s.unbalance?.hoursAbove ?? null, 'h');
+  if (before.unbalance) add('hours above unbalance limit', 'board', (s) => s.unbalance?.hoursAbove ?? null, 'h');
   add('leading import', 'board', (s) => s.leadingHours, 'h');
-  r.before.energy.phases.forEach((p, k) => {
+  before.energy.phases.forEach((p, k) => {
     add('energy', `line ${label(p.phase)}`, (s) => s.energy.phases[k]!.kWh, 'kWh');
     add('reactive energy', `line ${label(p.phase)}`, (s) => s.energy.phases[k]!.kvarh, 'kvarh');
   });
   add('billing power factor', 'period', (s) => s.energy.billingPf, '');
-  r.before.months.forEach((m, k) => {
+  before.months.forEach((m, k) => {
     add('imported energy', m.month, (s) => s.months[k]!.kWhImport, 'kWh');
     add('lagging reactive energy', m.month, (s) => s.months[k]!.kvarhLagging, 'kvarh');
     add('billing power factor', m.month, (s) => s.months[k]!.billingPf, '');
@@ -43,41 +54,66 @@ export function summaryCsv(r: ProfileResult, label: PhaseLabeller = labellerOf(r
     add('reactive charge', m.month, (s) => s.months[k]!.reactiveCharge, 'currency');
     add('demand charge', m.month, (s) => s.months[k]!.demandCharge, 'currency');
   });
-  r.bank?.steps.forEach((s) => rows.push([`bank step ${s.step} closings per year`, label(s.channel), null, s.closingsPerYear, 'operations']));
-  return rows.map((row) => row.map(cell).join(',')).join('\n') + '\n';
+  steps.forEach((s) => rows.push([`bank step ${s.step} closings per year`, label(s.channel), null, s.closingsPerYear, 'operations']));
+  return rows;
 }
 
 /** One row per interval: local time, currents, phase voltages, board P, Q, PF (and the same with the bank). */
 /** @param label the board file's phase labels: the column headers name lines and phases that way */
 export function intervalCsv(study: ProfileStudy, label: PhaseLabeller = labellerOf(study.result.phaseNames)): string {
   const f = study.before;
-  const phases = f.lineA.length;
-  const names = (['A', 'B', 'C'] as const).slice(0, phases).map(label);
-  const set = (tag: string) => [...names.map((p) => `line ${p}${tag} A`), `neutral${tag} A`, ...names.map((p) => `phase ${p}${tag} %V`), `P${tag} kW`, `Q${tag} kvar`, `PF${tag}`];
-  const head = ['time', ...set(''), ...(study.after ? ['bank kvar', ...set(' with bank')] : [])];
+  const names = phaseNamesOf(f, label);
+  const head = ['time', ...columnSet(names, '', ''), ...(study.after ? ['bank kvar', ...columnSet(names, '', ' with bank')] : [])];
   const out: string[] = [head.join(',')];
-  const figures = (g: typeof f, i: number, vBase: number) => {
-    let w = 0;
-    let q = 0;
-    for (let k = 0; k < phases; k++) {
-      w += g.phaseW[k]![i]!;
-      q += g.phaseVar[k]![i]!;
-    }
-    const s = Math.hypot(w, q);
-    return [
-      ...g.lineA.map((c) => c[i]!.toFixed(2)),
-      g.neutralA[i]!.toFixed(2),
-      ...g.phaseV.map((c) => ((100 * c[i]!) / vBase).toFixed(2)),
-      (w / 1000).toFixed(3),
-      (q / 1000).toFixed(3),
-      s === 0 ? '' : (Math.abs(w) / s).toFixed(4),
-    ].join(',');
-  };
   const vBase = study.nominalLineToNeutralV;
   for (let i = 0; i < f.count; i++) {
-    let line = `${study.label(i)},${figures(f, i, vBase)}`;
-    if (study.after) line += `,${study.connectedKvar![i]!.toFixed(1)},${figures(study.after, i, vBase)}`;
+    let line = `${study.label(i)},${figuresRow(f, i, vBase)}`;
+    if (study.after) line += `,${study.connectedKvar![i]!.toFixed(1)},${figuresRow(study.after, i, vBase)}`;
     out.push(line);
   }
   return out.join('\n') + '\n';
+}
+
+/** intervalCsv for an installation: the same columns for every board, each headed "<board>: ". */
+export function installationIntervalCsv(study: InstallationProfileStudy, nominalLineToNeutralV: number, label: PhaseLabeller = labellerOf(study.result.phaseNames)): string {
+  const boards = study.result.boards.map((b) => b.board);
+  const names = phaseNamesOf(study.before[0]!, label);
+  const head = ['time', ...boards.flatMap((b) => columnSet(names, `${b}: `, '')), ...(study.after ? ['bank kvar', ...boards.flatMap((b) => columnSet(names, `${b}: `, ' with bank'))] : [])];
+  const out: string[] = [head.map(cell).join(',')];
+  for (let i = 0; i < study.before[0]!.count; i++) {
+    let line = [study.label(i), ...study.before.map((f) => figuresRow(f, i, nominalLineToNeutralV))].join(',');
+    if (study.after) line += `,${study.connectedKvar![i]!.toFixed(1)},${study.after.map((f) => figuresRow(f, i, nominalLineToNeutralV)).join(',')}`;
+    out.push(line);
+  }
+  return out.join('\n') + '\n';
+}
+
+const phaseNamesOf = (f: IntervalFigures, label: PhaseLabeller) => (['A', 'B', 'C'] as const).slice(0, f.lineA.length).map(label);
+
+const columnSet = (names: readonly string[], prefix: string, tag: string) => [
+  ...names.map((p) => `${prefix}line ${p}${tag} A`),
+  `${prefix}neutral${tag} A`,
+  ...names.map((p) => `${prefix}phase ${p}${tag} %V`),
+  `${prefix}P${tag} kW`,
+  `${prefix}Q${tag} kvar`,
+  `${prefix}PF${tag}`,
+];
+
+function figuresRow(g: IntervalFigures, i: number, vBase: number): string {
+  const phases = g.lineA.length;
+  let w = 0;
+  let q = 0;
+  for (let k = 0; k < phases; k++) {
+    w += g.phaseW[k]![i]!;
+    q += g.phaseVar[k]![i]!;
+  }
+  const s = Math.hypot(w, q);
+  return [
+    ...g.lineA.map((c) => c[i]!.toFixed(2)),
+    g.neutralA[i]!.toFixed(2),
+    ...g.phaseV.map((c) => ((100 * c[i]!) / vBase).toFixed(2)),
+    (w / 1000).toFixed(3),
+    (q / 1000).toFixed(3),
+    s === 0 ? '' : (Math.abs(w) / s).toFixed(4),
+  ].join(',');
 }

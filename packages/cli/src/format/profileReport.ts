@@ -8,7 +8,7 @@ const money = (x: number | null) => (x === null ? '-' : fixed(x, 2));
 /** Labels of a board file named A/B/C: what a caller without the board's naming gets. */
 const LETTERED = labellerOf('A/B/C');
 
-function dataLines(r: ProfileResult): string[] {
+export function dataLines(r: Pick<ProfileResult, 'sequence' | 'intervals' | 'timeZone' | 'undriven' | 'path'>): string[] {
   const s = r.sequence;
   const lines = [`${thousands(r.intervals.count)} intervals of ${r.intervals.intervalSeconds} s, ${r.intervals.first} to ${r.intervals.last} (${r.timeZone})`];
   if (s) {
@@ -28,7 +28,7 @@ function dataLines(r: ProfileResult): string[] {
   return lines.map((l) => `  ${l}`);
 }
 
-function currentTable(s: ProfileSummary, label: PhaseLabeller): string {
+export function currentTable(s: ProfileSummary, label: PhaseLabeller): string {
   return renderTable(
     [{ header: 'conductor', align: 'left' }, { header: 'peak A' }, { header: 'at', align: 'left' }, { header: 'P99 A' }, { header: 'P95 A' }, { header: 'limit A' }, { header: 'hours over' }],
     s.conductors.map((c) => [
@@ -43,7 +43,7 @@ function currentTable(s: ProfileSummary, label: PhaseLabeller): string {
   );
 }
 
-function voltageTable(s: ProfileSummary, label: PhaseLabeller): string {
+export function voltageTable(s: ProfileSummary, label: PhaseLabeller): string {
   return renderTable(
     [{ header: 'phase', align: 'left' }, { header: 'lowest %' }, { header: 'at', align: 'left' }, { header: 'highest %' }, { header: 'at', align: 'left' }],
     s.voltages.map((v) => [label(v.phase), fixed(v.minPercent, 1), v.minAt, fixed(v.maxPercent, 1), v.maxAt]),
@@ -53,7 +53,7 @@ function voltageTable(s: ProfileSummary, label: PhaseLabeller): string {
 /** A voltage threshold as given: 90, 91.7 (c84-service-b), 94.25. */
 const limitPercent = (x: number) => String(Math.round(x * 100) / 100);
 
-function thresholdLines(s: ProfileSummary, r: ProfileResult): string[] {
+export function thresholdLines(s: ProfileSummary, r: Pick<ProfileResult, 'limits'>): string[] {
   const l = r.limits;
   const from = l.voltageLimitsFrom === 'profile.limits' ? 'profile.limits' : `the board's limits, ${l.voltageLimitsFrom}`;
   const out = [`below ${limitPercent(l.voltageLowPercent)} % voltage: ${hours(s.hoursVoltageLow)} h · above ${limitPercent(l.voltageHighPercent)} %: ${hours(s.hoursVoltageHigh)} h (${from})`];
@@ -63,14 +63,14 @@ function thresholdLines(s: ProfileSummary, r: ProfileResult): string[] {
   return out.map((x) => `  ${x}`);
 }
 
-function energyTable(s: ProfileSummary, label: PhaseLabeller): string {
+export function energyTable(s: ProfileSummary, label: PhaseLabeller): string {
   const rows = s.energy.phases.map((p) => [`line ${label(p.phase)}`, thousands(p.kWh), thousands(p.kvarh)]);
   rows.push(['board, imported', thousands(s.energy.kWhImport), thousands(s.energy.kvarhLagging) + ' lag']);
   if (s.energy.kWhExport > 0 || s.energy.kvarhLeading > 0) rows.push(['board, exported / leading', thousands(s.energy.kWhExport), thousands(s.energy.kvarhLeading) + ' lead']);
   return `${renderTable([{ header: '', align: 'left' }, { header: 'kWh' }, { header: 'kvarh' }], rows)}\n  billing power factor over the period: ${fixed(s.energy.billingPf, 3)}`;
 }
 
-function monthTable(s: ProfileSummary, after: ProfileSummary | null, currency: string): string {
+export function monthTable(s: ProfileSummary, after: ProfileSummary | null, currency: string): string {
   const head = [
     { header: 'month', align: 'left' as const },
     { header: 'kWh' },
@@ -99,7 +99,7 @@ function monthTable(s: ProfileSummary, after: ProfileSummary | null, currency: s
   return renderTable(head, rows);
 }
 
-function bankLines(r: ProfileResult, label: PhaseLabeller): string {
+export function bankLines(r: { readonly bank: ProfileResult['bank']; readonly before: ProfileSummary }, label: PhaseLabeller): string {
   const b = r.bank!;
   const set = b.settings;
   const sizing =
@@ -145,7 +145,7 @@ function bankLines(r: ProfileResult, label: PhaseLabeller): string {
   return lines.join('\n');
 }
 
-function worstTable(s: ProfileSummary): string {
+export function worstTable(s: ProfileSummary): string {
   const rows = (s.worstByNeutral.length ? s.worstByNeutral : s.worstByLine).map((w) => [w.at, fixed(w.maxLineA, 1), fixed(w.neutralA, 1), fixed(w.unbalancePercent, 2)]);
   return renderTable([{ header: 'interval', align: 'left' }, { header: 'highest line A' }, { header: 'neutral A' }, { header: 'unbalance %' }], rows);
 }

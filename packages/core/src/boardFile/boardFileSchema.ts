@@ -32,6 +32,7 @@ export const installationSchema = installationSchemaWith({
       .extend({ board: z.string().min(1).optional().describe('the board the bank goes on; default the main board') })
       .optional()
       .describe(CORRECTION_WORDS),
+    profile: profileSpecSchema.optional(),
     harmonics: installationHarmonicsSectionSchema.optional(),
     rebalance: rebalanceSpecSchema.optional(),
   },

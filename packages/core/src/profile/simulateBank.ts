@@ -45,21 +45,74 @@ export interface SimulateBankInput {
   readonly solve?: BatchSolveOptions;
 }
 
+/** What the switching loop needs of a solver: edge slots for the steps, each interval's load powers, a solve that records. */
+export interface BankSolver {
+  readonly edgeCount: number;
+  readonly path: 'closed-form' | 'nodal';
+  /** Index of the edge a step part sits on (it was among the extra edges the solver was prepared with). */
+  edgeIndex(edge: BatchEdge): number;
+  /** Writes interval i's load powers ([edge][part][re, im]). */
+  powersAt(i: number, out: Float64Array): void;
+  /** Solves interval i with these powers and records its figures (the controlled board's into `figures`). */
+  solve(powers: Float64Array, i: number): void;
+}
+
+export interface SwitchBankInput {
+  /** The board the bank is on and the controller measures (its incomer). */
+  readonly board: Board;
+  /** The controlled board's per-interval figures, which `solve` fills. */
+  readonly figures: IntervalFigures;
+  readonly utcMs: Float64Array;
+  readonly intervalMs: number;
+  readonly steps: readonly SwitchedStep[];
+  readonly fixed?: readonly SwitchedStep[];
+  readonly settings: SwitchingSettings;
+}
+
 export function simulateBank(input: SimulateBankInput): BankRun {
-  const { board, steps } = input;
+  const { board } = input;
+  const figures = allocateFigures(input.columns.count, board.phases.length);
+  return switchBank({ ...input, figures }, (extra) => {
+    const net = compileBatchNetwork(board, input.drivers, extra);
+    const kernel = createBatchKernel(net, input.solve);
+    return {
+      edgeCount: net.edges.length,
+      path: kernel.path,
+      edgeIndex: (edge) => edgeIndex(net, edge.from, edge.to, edge.vNominal),
+      powersAt: (i, out) => edgePowersAt(net, input.columns, i, out),
+      solve: (powers, i) => {
+        kernel.solve(powers, i);
+        recordInterval(kernel.state, board.sequence, figures, i);
+      },
+    };
+  });
+}
+
+/**
+ * The switching loop on any solver: each interval solved with the steps connected, the controller
+ * reading the board's figures and switching for the next interval.
+ * @param prepare the solver, given the edges the steps need
+ */
+export function switchBank(input: SwitchBankInput, prepare: (extraEdges: BatchEdge[]) => BankSolver): BankRun {
+  const { board, steps, figures } = input;
   const fixed = input.fixed ?? [];
   const layout = [...steps, ...fixed].map((s) => stepEdges(board, s.channel));
-  const net = compileBatchNetwork(board, input.drivers, layout.flat().map((x) => x.edge));
-  const stepSlots = layout.map((edges) => edges.map(({ edge, share }) => ({ e: edgeIndex(net, edge.from, edge.to, edge.vNominal), share })));
-  const kernel = createBatchKernel(net, input.solve);
-  const n = input.columns.count;
-  const figures = allocateFigures(n, board.phases.length);
+  const solver = prepare(layout.flat().map((x) => x.edge));
+  const stepSlots = layout.map((edges) =>
+    edges.map(({ edge, share }) => {
+      const e = solver.edgeIndex(edge);
+      // The solver was prepared with these edges; a miss would drop the step silently.
+      if (e < 0) throw new RangeError(`switchBank: the solver has no edge ${edge.from}-${edge.to} for a step`);
+      return { e, share };
+    }),
+  );
+  const n = figures.count;
   const connectedKvar = new Float64Array(n);
   const controller = createBankController(steps, input.settings);
-  const powers = new Float64Array(net.edges.length * 6);
+  const powers = new Float64Array(solver.edgeCount * 6);
   const phaseIndex = new Map(board.phases.map((p, k) => [p, k]));
   for (let i = 0; i < n; i++) {
-    edgePowersAt(net, input.columns, i, powers);
+    solver.powersAt(i, powers);
     let kvar = 0;
     for (let s = 0; s < steps.length; s++) {
       if (!controller.on[s]) continue;
@@ -70,8 +123,7 @@ export function simulateBank(input: SimulateBankInput): BankRun {
     connectedKvar[i] = kvar;
     for (let f = 0; f < fixed.length; f++)
       for (const { e, share } of stepSlots[steps.length + f]!) powers[e * 6 + 1] = powers[e * 6 + 1]! - fixed[f]!.kvar * 1000 * share;
-    kernel.solve(powers, i);
-    recordInterval(kernel.state, board.sequence, figures, i);
+    solver.solve(powers, i);
     if (i > 0 && input.utcMs[i]! - input.utcMs[i - 1]! > input.intervalMs) controller.interrupt();
     controller.observe(input.utcMs[i]!, input.intervalMs, (channel) => {
       if (channel === 'ABC') {
@@ -87,5 +139,5 @@ export function simulateBank(input: SimulateBankInput): BankRun {
       return { w: figures.phaseW[k]![i]!, var: figures.phaseVar[k]![i]! };
     });
   }
-  return { figures, connectedKvar, closings: [...controller.closings], openings: [...controller.openings], path: kernel.path };
+  return { figures, connectedKvar, closings: [...controller.closings], openings: [...controller.openings], path: solver.path };
 }

@@ -8,14 +8,12 @@ import { conventionsOf } from '../board/conventions/boardConventions.js';
 import type { PhaseNaming } from '../board/conventions/phaseNames.js';
 import type { DriverColumns, DriverSpec } from './batchNetwork.js';
 import { compileBatchNetwork } from './batchNetwork.js';
-import type { SwitchedStep, SwitchingSettings } from './bankController.js';
 import type { SwitchingFromBank } from './switchingFromBank.js';
 import type { SequenceReport } from './checkIntervalSequence.js';
-import { maximumOf } from './intervalStatistics.js';
 import { PROFILE_DEFAULTS } from './profileDefaults.js';
 import type { ProfileSpec } from './profileSpec.js';
 import { simulateBank } from './simulateBank.js';
-import { sizeBankSteps } from './sizeBankSteps.js';
+import { bankOverProfile } from './bankOverProfile.js';
 import { allocateFigures, solveBatch, type BatchSolveOptions, type IntervalFigures } from './solveBatch.js';
 import { summariseFigures, type ProfileSummary, type ResolvedLimits, type SummaryContext } from './summariseFigures.js';
 import { createZoneClock, monthKeyOf } from './zoneClock.js';
@@ -168,22 +166,28 @@ export function hoursBelowTarget(f: IntervalFigures, targetPf: number, upperPf: 
   return { hours: below * h, stepTooCoarseHours: coarse * h };
 }
 
-export function studyProfile(input: ProfileStudyInput, options: ProfileStudyOptions = {}): ProfileStudy {
-  const { board } = input;
-  const n = input.columns.count;
-  const zone = options.timeZone ?? 'UTC';
+/** Wall-clock times of the intervals in a zone: local times, calendar months, and the labels reports show. */
+export function profileClock(utcMs: Float64Array, zone: string): { localMs: Float64Array; monthKey: Int32Array; label: (i: number) => string; labelUtc: (utcMs: number) => string } {
+  const n = utcMs.length;
   const clock = createZoneClock(zone);
   const localMs = new Float64Array(n);
   const monthKey = new Int32Array(n);
   for (let i = 0; i < n; i++) {
-    localMs[i] = input.utcMs[i]! + clock.offsetAt(input.utcMs[i]!);
+    localMs[i] = utcMs[i]! + clock.offsetAt(utcMs[i]!);
     monthKey[i] = monthKeyOf(localMs[i]!);
   }
   const labelLocal = (ms: number) => {
     const d = new Date(ms);
     return `${d.getUTCFullYear()}-${pad(d.getUTCMonth() + 1)}-${pad(d.getUTCDate())} ${pad(d.getUTCHours())}:${pad(d.getUTCMinutes())}`;
   };
-  const label = (i: number) => labelLocal(localMs[i]!);
+  return { localMs, monthKey, label: (i) => labelLocal(localMs[i]!), labelUtc: (u) => labelLocal(u + clock.offsetAt(u)) };
+}
+
+export function studyProfile(input: ProfileStudyInput, options: ProfileStudyOptions = {}): ProfileStudy {
+  const { board } = input;
+  const n = input.columns.count;
+  const zone = options.timeZone ?? 'UTC';
+  const { localMs, monthKey, label, labelUtc } = profileClock(input.utcMs, zone);
   const limits = resolveLimits(board, input.profile);
   const ctx: SummaryContext = {
     board,
@@ -194,7 +198,7 @@ export function studyProfile(input: ProfileStudyInput, options: ProfileStudyOpti
     limits,
     tariff: input.profile?.tariff,
     label,
-    labelUtc: (u) => labelLocal(u + clock.offsetAt(u)),
+    labelUtc,
   };
   let before = input.before;
   let path = input.beforePath ?? 'nodal';
@@ -205,76 +209,22 @@ export function studyProfile(input: ProfileStudyInput, options: ProfileStudyOpti
   }
   const beforeSummary = summariseFigures(before, ctx);
 
-  let bank: ProfileBankResult | null = null;
-  let after: IntervalFigures | null = null;
-  let connectedKvar: Float64Array | null = null;
-  const designed = options.designedBank;
-  if (options.bank || designed) {
-    const b = input.profile?.bank;
-    const settings: SwitchingSettings & { coverShare: number | null } = designed
-      ? { ...designed.settings, coverShare: null }
-      : {
-          targetPf: options.targetPf ?? b?.targetPf ?? PROFILE_DEFAULTS.targetPf,
-          coverShare: b?.coverShare ?? PROFILE_DEFAULTS.coverShare,
-          responseShare: b?.responseShare ?? PROFILE_DEFAULTS.responseShare,
-          delaySeconds: b?.delaySeconds ?? PROFILE_DEFAULTS.delaySeconds,
-          reconnectSeconds: b?.reconnectSeconds ?? PROFILE_DEFAULTS.reconnectSeconds,
-        };
-    let steps: readonly SwitchedStep[];
-    let needKvar: Record<string, number> | null = null;
-    const source: ProfileBankResult['source'] = designed ? 'correction-study' : b?.steps ? 'board-file-steps' : 'profile';
-    if (designed) steps = designed.steps;
-    else if (b?.steps) steps = b.steps.map((s) => ({ kvar: s.kvar, channel: s.phase ?? 'ABC' }));
-    else {
-      const sizing = sizeBankSteps(board, before, {
-        targetPf: settings.targetPf,
-        coverShare: settings.coverShare!,
-        stepCount: b?.stepCount ?? PROFILE_DEFAULTS.stepCount,
-        perPhase: b?.perPhase ?? false,
-      });
-      steps = sizing.steps;
-      needKvar = { ...sizing.needKvar };
-    }
-    const fixed = designed?.fixed ?? [];
-    if (steps.length || fixed.length) {
-      const run = simulateBank({ board, drivers: input.drivers, columns: input.columns, utcMs: input.utcMs, intervalMs: input.intervalMs, steps, fixed, settings, ...(options.solve ? { solve: options.solve } : {}) });
-      after = run.figures;
-      connectedKvar = run.connectedKvar;
-      const years = (n * input.intervalMs) / (365.25 * 86_400_000);
-      const stepRuns = steps.map((s, k) => ({
-        step: s.output ?? k + 1,
-        channel: s.channel,
-        kvar: s.kvar,
-        closings: run.closings[k]!,
-        openings: run.openings[k]!,
-        closingsPerYear: years > 0 ? run.closings[k]! / years : 0,
-      }));
-      const busiest = Math.max(0, ...stepRuns.map((s) => s.closingsPerYear));
-      const rise = new Float64Array(n);
-      for (let i = 0; i < n; i++)
-        for (let k = 0; k < board.phases.length; k++) rise[i] = Math.max(rise[i]!, run.figures.phaseV[k]![i]! - before.phaseV[k]![i]!);
-      const worstRise = maximumOf(rise);
-      const { upperPf, ...rest } = settings;
-      const belowTarget = upperPf !== undefined && steps.length && steps.every((x) => x.channel === 'ABC') ? hoursBelowTarget(run.figures, settings.targetPf, upperPf, Math.min(...steps.map((x) => x.kvar)), input.intervalMs) : null;
-      bank = {
-        source,
-        sizedFromProfile: source === 'profile',
-        needKvar,
-        steps: stepRuns,
-        totalKvar: steps.reduce((s, x) => s + x.kvar, 0),
-        fixedKvar: fixed.reduce((s, x) => s + x.kvar, 0),
-        notSimulated: designed && (designed.notSimulated.length || designed.fixedNotSimulatedKvar) ? { outputs: designed.notSimulated, fixedKvar: designed.fixedNotSimulatedKvar } : null,
-        settings: { ...rest, upperPf: upperPf ?? null },
-        operationsPerYearLimit: PROFILE_DEFAULTS.operationsPerYearLimit,
-        contactorLifeOperations: PROFILE_DEFAULTS.contactorLifeOperations,
-        yearsToContactorLife: busiest > 0 ? PROFILE_DEFAULTS.contactorLifeOperations / busiest : null,
-        voltageRisePercent: (100 * worstRise.value) / board.nominalLineToNeutralV,
-        voltageRiseAt: label(worstRise.index),
-        belowTarget,
-        after: summariseFigures(run.figures, ctx),
-      };
-    }
-  }
+  const withBank = bankOverProfile(
+    {
+      board,
+      before,
+      intervalMs: input.intervalMs,
+      label,
+      ...(input.profile ? { profile: input.profile } : {}),
+      summarise: (f) => summariseFigures(f, ctx),
+      simulate: (steps, fixed, settings) =>
+        simulateBank({ board, drivers: input.drivers, columns: input.columns, utcMs: input.utcMs, intervalMs: input.intervalMs, steps, fixed, settings, ...(options.solve ? { solve: options.solve } : {}) }),
+    },
+    options,
+  );
+  const bank = withBank?.bank ?? null;
+  const after = withBank?.run.figures ?? null;
+  const connectedKvar = withBank?.run.connectedKvar ?? null;
   const result: ProfileResult = {
     board: board.name,
     phaseNames: conventionsOf(board).phaseNames,

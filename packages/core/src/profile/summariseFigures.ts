@@ -83,6 +83,12 @@ export interface SummaryContext {
   readonly labelUtc: (utcMs: number) => string;
 }
 
+/**
+ * Reactive power below this share of the board's peak apparent power is round-off of the solve, not a
+ * leading power factor: a board of resistive loads, or an idle one, reads about ±1e-14 of it in vars.
+ */
+const ROUND_OFF_VAR = 1e-9;
+
 export function summariseFigures(f: IntervalFigures, ctx: SummaryContext): ProfileSummary {
   const { board, limits } = ctx;
   const n = f.count;
@@ -130,6 +136,9 @@ export function summariseFigures(f: IntervalFigures, ctx: SummaryContext): Profi
       totalW[i] = totalW[i]! + f.phaseW[k]![i]!;
       totalVar[i] = totalVar[i]! + f.phaseVar[k]![i]!;
     }
+  let peakVA = 0;
+  for (let i = 0; i < n; i++) peakVA = Math.max(peakVA, Math.hypot(totalW[i]!, totalVar[i]!));
+  const varFloor = ROUND_OFF_VAR * peakVA;
   const months = billMonths({ count: n, utcMs: ctx.utcMs, monthKey: ctx.monthKey, localMs: ctx.localMs, intervalMs: ctx.intervalMs, totalW, totalVar }, ctx.tariff);
   const sumOf = (pick: (m: MonthReading) => number) => months.reduce((s, m) => s + pick(m), 0);
   const kWhImport = sumOf((m) => m.kWhImport);
@@ -167,7 +176,7 @@ export function summariseFigures(f: IntervalFigures, ctx: SummaryContext): Profi
       kvarhLeading: sumOf((m) => m.kvarhLeading),
       billingPf: kWhImport > 0 ? kWhImport / Math.hypot(kWhImport, kvarhLagging) : 1,
     },
-    leadingHours: countWhere(n, (i) => totalW[i]! > 0 && totalVar[i]! < 0) * h,
+    leadingHours: countWhere(n, (i) => totalW[i]! > 0 && totalVar[i]! < -varFloor) * h,
     months: months.map((m) => ({ ...m, peakAt: ctx.labelUtc(m.peakAtUtcMs) })),
     worstByNeutral: board.hasNeutral ? topIndices(f.neutralA, 5).map(worst) : [],
     worstByLine: topIndices(maxLine, 5).map(worst),

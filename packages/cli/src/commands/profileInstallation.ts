@@ -1,0 +1,115 @@
+/** `trivar profile` on an installation file: the interval data through every board and feeder at once. */
+import { availableParallelism } from 'node:os';
+import {
+  checkIntervalSequence,
+  correctInstallation,
+  driverColumns,
+  switchingFromBank,
+  type Installation,
+  type SwitchingFromBank,
+  installationBoardIndex,
+  isKnownTimeZone,
+  labellerOf,
+  normaliseInstallation,
+  parseInstallation,
+  planDrivers,
+  planInstallationColumns,
+  studyInstallationProfile,
+  type InstallationProfileStudy,
+} from '@trivar/core';
+import type { CliIo } from '../io.js';
+import { UsageError } from '../exitCodes.js';
+import { writeResult } from '../writeResult.js';
+import { readCsvHeader, readIntervalRows } from '../read/intervalCsv.js';
+import { renderInstallationProfileReport } from '../format/installationProfileReport.js';
+import { startProgress } from '../progress.js';
+import { assertNotInput, writeOutputFile } from '../outputFiles.js';
+import { installationIntervalCsv, installationSummaryCsv } from '../format/profileCsv.js';
+import type { ProfileCommandOptions } from './profile.js';
+import { inFileSection } from './correct.js';
+
+/** What installation files do not take yet, by option. */
+const NOT_FOR_INSTALLATIONS: readonly [keyof ProfileCommandOptions, string][] = [['charts', '--charts']];
+
+/**
+ * The bank trivar correct designs for the installation (its correction section, on the board
+ * `--board` or `correction.board` names), as simulator steps and controller settings.
+ */
+function designedInstallationBank(spec: ReturnType<typeof parseInstallation>, installation: Installation, boardOption: string | undefined): { bank: SwitchingFromBank; board: string | undefined } {
+  const { board: fileBoard, ...study } = spec.correction ?? {};
+  if (!study.arrangement)
+    throw new UsageError(
+      '--correction-bank: the installation file has no correction section naming an arrangement, so the correction study designs no single bank (add correction: { arrangement: ..., board: ... }; trivar correct compares arrangements)',
+    );
+  if (fileBoard !== undefined) installationBoardIndex(installation, fileBoard, 'correction.board');
+  const board = boardOption ?? fileBoard;
+  let selection;
+  try {
+    selection = correctInstallation(installation, study, board === undefined ? {} : { board }).report.selection;
+  } catch (error) {
+    throw inFileSection(error);
+  }
+  if (!selection?.steps.length || !selection.controller)
+    throw new UsageError('--correction-bank: the correction study builds no switched bank for this board (run trivar correct to see why)');
+  return { bank: switchingFromBank(selection.steps, selection.controller), board };
+}
+
+export async function runProfileInstallation(input: unknown, options: ProfileCommandOptions, io: CliIo, inputs: readonly string[] = []): Promise<InstallationProfileStudy> {
+  const spec = parseInstallation(input);
+  const { installation } = normaliseInstallation(spec);
+  for (const [key, option] of NOT_FOR_INSTALLATIONS)
+    if (options[key] !== undefined && options[key] !== false) throw new UsageError(`${option} is not available for installation files yet (single board files only); leave it out to get the per-board report`);
+  if (!options.data) throw new UsageError('give the interval data with --data <file.csv> (profile.scenarios are read on single board files only)');
+  assertNotInput([options.summaryCsv, options.intervalsCsv].filter((x): x is string => x !== undefined), [...inputs, options.data]);
+  if (options.board !== undefined && !options.bank && !options.correctionBank) throw new UsageError('--board places the bank: give --bank or --correction-bank too');
+  if (options.correctionBank && options.bank) throw new UsageError('give either --bank (a bank sized from the profile) or --correction-bank (the correction study\'s bank), not both');
+  if (options.correctionBank && options.pf !== undefined)
+    throw new UsageError('--pf sets the target of a bank sized from the profile; the correction study\'s bank keeps the target of the file\'s correction section');
+  // Checked before any data is read, so the error names the option.
+  installationBoardIndex(installation, options.board, '--board');
+  const designed = options.correctionBank ? designedInstallationBank(spec, installation, options.board) : undefined;
+  const bankBoard = options.board ?? designed?.board;
+  const zone = options.timeZone ?? 'UTC';
+  if (!isKnownTimeZone(zone)) throw new UsageError(`--time-zone: "${zone}" is not a time zone this system knows (expected an IANA name such as Europe/Lisbon or America/Chicago)`);
+  const plan = planInstallationColumns(installation, readCsvHeader(options.data), {
+    ...(spec.profile?.groups ? { groups: spec.profile.groups } : {}),
+    undrivenAtRating: options.unlistedAtRating ?? false,
+  });
+  const progress = startProgress(io);
+  let study: InstallationProfileStudy;
+  try {
+    progress.stage('reading', 1);
+    const threads = options.threads ?? Math.min(2, availableParallelism());
+    const raw = await readIntervalRows(options.data, plan, { timeZone: zone }, threads);
+    const table = checkIntervalSequence(raw, options.fillGaps ?? 'none');
+    study = studyInstallationProfile(
+      {
+        installation,
+        loads: plan.board.loads,
+        loadBoards: plan.loadBoards,
+        drivers: planDrivers(plan),
+        columns: driverColumns(plan, table.values, table.count),
+        utcMs: table.utcMs,
+        intervalMs: table.intervalMs,
+        sequence: table.report,
+        undriven: { loads: plan.undriven, atRating: plan.undrivenAtRating },
+        ...(spec.profile ? { profile: spec.profile } : {}),
+      },
+      {
+        timeZone: zone,
+        bank: options.bank ?? false,
+        ...(bankBoard !== undefined ? { bankBoard } : {}),
+        ...(designed ? { designedBank: designed.bank } : {}),
+        ...(options.pf !== undefined ? { targetPf: options.pf } : {}),
+        onProgress: (stage, done, total) => progress.stage(stage === 'solve' ? 'solving' : 'bank', total, done),
+      },
+    );
+  } finally {
+    progress.stop();
+  }
+  const label = labellerOf(study.result.phaseNames);
+  if (options.summaryCsv) writeOutputFile(options.summaryCsv, installationSummaryCsv(study.result, label));
+  if (options.intervalsCsv) writeOutputFile(options.intervalsCsv, installationIntervalCsv(study, installation.main.nominalLineToNeutralV, label));
+  writeResult(io, study.result, options.json, (r) => renderInstallationProfileReport(r, spec.profile?.tariff?.currency ?? 'units'));
+  return study;
+}

@@ -1,0 +1,85 @@
+/** InstallationProfileResult → the text report of `trivar profile` on an installation file. */
+import { labellerOf, type InstallationProfileBoard, type InstallationProfileResult, type PhaseLabeller } from '@trivar/core';
+import { bankLines, currentTable, dataLines, energyTable, monthTable, thresholdLines, voltageTable, worstTable } from './profileReport.js';
+import { fixed, renderTableWithin, section } from './textTable.js';
+
+const hours = (h: number) => (h === 0 ? '0' : h < 10 ? fixed(h, 2) : fixed(h, 1));
+const limitPercent = (x: number) => String(Math.round(x * 100) / 100);
+
+/** One row per board: its incomer's peak against its rating, its neutral, its voltage band and hours outside it. */
+function boardTable(r: InstallationProfileResult): string {
+  const rows = r.boards.map((b) => {
+    const lines = b.before.conductors.filter((c) => c.conductor !== 'N');
+    const worst = lines.reduce((m, c) => (c.maxA > m.maxA ? c : m), lines[0]!);
+    const neutral = b.before.conductors.find((c) => c.conductor === 'N');
+    const lowest = Math.min(...b.before.voltages.map((v) => v.minPercent));
+    const highest = Math.max(...b.before.voltages.map((v) => v.maxPercent));
+    return [
+      b.board,
+      b.fedFrom ?? 'supply',
+      fixed(worst.maxA, 1),
+      worst.ratingA === null ? '-' : fixed(worst.ratingA, 0),
+      neutral ? fixed(neutral.maxA, 1) : '-',
+      fixed(lowest, 1),
+      fixed(highest, 1),
+      `${limitPercent(b.limits.voltageLowPercent)}-${limitPercent(b.limits.voltageHighPercent)}`,
+      hours(b.before.hoursVoltageLow),
+      hours(b.before.hoursVoltageHigh),
+    ];
+  });
+  return renderTableWithin(
+    [
+      { header: 'board', align: 'left' },
+      { header: 'fed from', align: 'left' },
+      { header: 'peak line A' },
+      { header: 'rating A' },
+      { header: 'peak N A' },
+      { header: 'lowest %' },
+      { header: 'highest %' },
+      { header: 'band %' },
+      { header: 'h low' },
+      { header: 'h high' },
+    ],
+    rows,
+  );
+}
+
+/** A board's own figures: its incomer's currents, its voltages against its band, its energy. */
+function boardSection(b: InstallationProfileBoard, label: PhaseLabeller): string[] {
+  const where = b.fedFrom === null ? 'supply to the main board' : `feeder from ${b.fedFrom}`;
+  return [
+    section(`${b.board} — currents in the ${where}`),
+    currentTable(b.before, label),
+    section(`${b.board} — phase voltage at the board (% of nominal)`),
+    voltageTable(b.before, label),
+    ...thresholdLines(b.before, b),
+    `  energy through the board: ${Math.round(b.before.energy.kWhImport).toLocaleString('en-US')} kWh imported, billing power factor ${fixed(b.before.energy.billingPf, 3)}`,
+  ];
+}
+
+export function renderInstallationProfileReport(r: InstallationProfileResult, currency: string, label: PhaseLabeller = labellerOf(r.phaseNames)): string {
+  const main = r.boards[0]!;
+  const bankBoard = r.bank ? r.boards.find((b) => b.board === r.bank!.board)! : null;
+  const parts = [
+    `${r.installation} — load over time, every board`,
+    ...dataLines(r),
+    section('Boards (currents: the supply at the main board, each sub-board\'s incoming feeder)'),
+    boardTable(r),
+    ...r.boards.flatMap((b) => boardSection(b, label)),
+    section(`Energy at the supply (${main.board})`),
+    energyTable(main.before, label),
+    section(`Calendar months at the supply (${main.board})`),
+    monthTable(main.before, main.after, currency),
+    section(main.before.worstByNeutral.length ? `Intervals with the highest neutral current at ${main.board}` : `Intervals with the highest line current at ${main.board}`),
+    worstTable(main.before),
+  ];
+  if (r.bank && bankBoard) {
+    parts.push(section(`Automatic bank on ${r.bank.board} over the profile`), bankLines({ bank: r.bank, before: bankBoard.before }, label));
+    if (bankBoard !== main)
+      parts.push(
+        `  at the supply (${main.board}): billing power factor ${fixed(main.before.energy.billingPf, 3)} → ${fixed(main.after!.energy.billingPf, 3)}; peak line current ${fixed(Math.max(...main.before.conductors.filter((c) => c.conductor !== 'N').map((c) => c.maxA)), 1)} A → ${fixed(Math.max(...main.after!.conductors.filter((c) => c.conductor !== 'N').map((c) => c.maxA)), 1)} A`,
+      );
+  }
+  parts.push(section('Cautions'), ...r.cautions.map((c) => `  - ${c}`));
+  return `${parts.join('\n')}\n`;
+}

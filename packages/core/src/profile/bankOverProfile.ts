@@ -1,0 +1,100 @@
+/**
+ * An automatic bank over a profile (trivar profile --bank / --correction-bank): its steps (sized from the
+ * profile, as written in profile.bank.steps, or the correction study's), the switching simulated by the
+ * caller's solver (one board, or the bank's board in its installation), and what it changes.
+ */
+import type { Board } from '../board/boardModel.js';
+import type { SwitchedStep, SwitchingSettings } from './bankController.js';
+import { maximumOf } from './intervalStatistics.js';
+import { PROFILE_DEFAULTS } from './profileDefaults.js';
+import type { ProfileSpec } from './profileSpec.js';
+import type { BankRun } from './simulateBank.js';
+import { sizeBankSteps } from './sizeBankSteps.js';
+import type { IntervalFigures } from './solveBatch.js';
+import type { ProfileSummary } from './summariseFigures.js';
+import { hoursBelowTarget, type ProfileBankResult, type ProfileStudyOptions } from './studyProfile.js';
+
+export interface BankOverProfileInput {
+  /** The board the bank is on (its controller measures the board's incomer). */
+  readonly board: Board;
+  /** That board's figures without the bank. */
+  readonly before: IntervalFigures;
+  readonly profile?: ProfileSpec;
+  readonly intervalMs: number;
+  readonly label: (i: number) => string;
+  readonly summarise: (figures: IntervalFigures) => ProfileSummary;
+  /** Runs the switching over every interval with these steps (the figures returned: the bank's board). */
+  readonly simulate: (steps: readonly SwitchedStep[], fixed: readonly SwitchedStep[], settings: SwitchingSettings) => BankRun;
+}
+
+/** The bank's result and its run, or null when no bank is asked for or it has no steps. */
+export function bankOverProfile(input: BankOverProfileInput, options: Pick<ProfileStudyOptions, 'bank' | 'targetPf' | 'designedBank'>): { bank: ProfileBankResult; run: BankRun } | null {
+  const { board, before, label } = input;
+  const n = before.count;
+  const designed = options.designedBank;
+  if (!options.bank && !designed) return null;
+  const b = input.profile?.bank;
+  const settings: SwitchingSettings & { coverShare: number | null } = designed
+    ? { ...designed.settings, coverShare: null }
+    : {
+        targetPf: options.targetPf ?? b?.targetPf ?? PROFILE_DEFAULTS.targetPf,
+        coverShare: b?.coverShare ?? PROFILE_DEFAULTS.coverShare,
+        responseShare: b?.responseShare ?? PROFILE_DEFAULTS.responseShare,
+        delaySeconds: b?.delaySeconds ?? PROFILE_DEFAULTS.delaySeconds,
+        reconnectSeconds: b?.reconnectSeconds ?? PROFILE_DEFAULTS.reconnectSeconds,
+      };
+  let steps: readonly SwitchedStep[];
+  let needKvar: Record<string, number> | null = null;
+  const source: ProfileBankResult['source'] = designed ? 'correction-study' : b?.steps ? 'board-file-steps' : 'profile';
+  if (designed) steps = designed.steps;
+  else if (b?.steps) steps = b.steps.map((s) => ({ kvar: s.kvar, channel: s.phase ?? 'ABC' }));
+  else {
+    const sizing = sizeBankSteps(board, before, {
+      targetPf: settings.targetPf,
+      coverShare: settings.coverShare!,
+      stepCount: b?.stepCount ?? PROFILE_DEFAULTS.stepCount,
+      perPhase: b?.perPhase ?? false,
+    });
+    steps = sizing.steps;
+    needKvar = { ...sizing.needKvar };
+  }
+  const fixed = designed?.fixed ?? [];
+  if (steps.length || fixed.length) {
+    const run = input.simulate(steps, fixed, settings);
+    const years = (n * input.intervalMs) / (365.25 * 86_400_000);
+    const stepRuns = steps.map((s, k) => ({
+      step: s.output ?? k + 1,
+      channel: s.channel,
+      kvar: s.kvar,
+      closings: run.closings[k]!,
+      openings: run.openings[k]!,
+      closingsPerYear: years > 0 ? run.closings[k]! / years : 0,
+    }));
+    const busiest = Math.max(0, ...stepRuns.map((s) => s.closingsPerYear));
+    const rise = new Float64Array(n);
+    for (let i = 0; i < n; i++)
+      for (let k = 0; k < board.phases.length; k++) rise[i] = Math.max(rise[i]!, run.figures.phaseV[k]![i]! - before.phaseV[k]![i]!);
+    const worstRise = maximumOf(rise);
+    const { upperPf, ...rest } = settings;
+    const belowTarget = upperPf !== undefined && steps.length && steps.every((x) => x.channel === 'ABC') ? hoursBelowTarget(run.figures, settings.targetPf, upperPf, Math.min(...steps.map((x) => x.kvar)), input.intervalMs) : null;
+    const bank: ProfileBankResult = {
+      source,
+      sizedFromProfile: source === 'profile',
+      needKvar,
+      steps: stepRuns,
+      totalKvar: steps.reduce((s, x) => s + x.kvar, 0),
+      fixedKvar: fixed.reduce((s, x) => s + x.kvar, 0),
+      notSimulated: designed && (designed.notSimulated.length || designed.fixedNotSimulatedKvar) ? { outputs: designed.notSimulated, fixedKvar: designed.fixedNotSimulatedKvar } : null,
+      settings: { ...rest, upperPf: upperPf ?? null },
+      operationsPerYearLimit: PROFILE_DEFAULTS.operationsPerYearLimit,
+      contactorLifeOperations: PROFILE_DEFAULTS.contactorLifeOperations,
+      yearsToContactorLife: busiest > 0 ? PROFILE_DEFAULTS.contactorLifeOperations / busiest : null,
+      voltageRisePercent: (100 * worstRise.value) / board.nominalLineToNeutralV,
+      voltageRiseAt: label(worstRise.index),
+      belowTarget,
+      after: input.summarise(run.figures),
+    };
+    return { bank, run };
+  }
+  return null;
+}

@@ -1,0 +1,153 @@
+/**
+ * The profile study on an installation: interval data through the installation's
+ * batch path (every board and feeder in one circuit), a summary per board —
+ * each board's voltages judged against its own limits, a sub-board's currents
+ * being those of its incoming feeder — and the supply's energy and billing at
+ * the main board. An automatic bank, when asked for, sits on one board; its
+ * controller measures that board's incomer and every board is summarised again
+ * with it in.
+ */
+import type { Installation, BoardLoad } from '../board/boardModel.js';
+import { conventionsOf } from '../board/conventions/boardConventions.js';
+import type { PhaseNaming } from '../board/conventions/phaseNames.js';
+import { installationBoardIndex } from '../correction/correctInstallation.js';
+import { boardOfInstallation } from '../network/installationModel.js';
+import type { DriverColumns, DriverSpec } from './batchNetwork.js';
+import { bankOverProfile } from './bankOverProfile.js';
+import type { SequenceReport } from './checkIntervalSequence.js';
+import { boardNamesOf } from './installationColumns.js';
+import { allocateBoardFigures, compileInstallationBatch, createInstallationKernel, solveInstallationBatch } from './installationBatch.js';
+import { edgePowersAt } from './batchNetwork.js';
+import type { ProfileSpec } from './profileSpec.js';
+import { switchBank } from './simulateBank.js';
+import { recordInterval, type IntervalFigures } from './solveBatch.js';
+import { profileClock, resolveLimits, type ProfileBankResult, type ProfileStudyOptions } from './studyProfile.js';
+import { summariseFigures, type ProfileSummary, type ResolvedLimits, type SummaryContext } from './summariseFigures.js';
+import { PROFILE_CAUTIONS } from './profileWording.js';
+
+export interface InstallationProfileInput {
+  readonly installation: Installation;
+  /** Every load the drivers index (see planInstallationColumns), and the board of each. */
+  readonly loads: readonly BoardLoad[];
+  readonly loadBoards: readonly number[];
+  readonly drivers: readonly DriverSpec[];
+  readonly columns: DriverColumns;
+  readonly utcMs: Float64Array;
+  readonly intervalMs: number;
+  readonly sequence?: SequenceReport;
+  readonly undriven?: { readonly loads: readonly string[]; readonly atRating: boolean };
+  readonly profile?: ProfileSpec;
+}
+
+export interface InstallationProfileOptions extends Pick<ProfileStudyOptions, 'timeZone' | 'bank' | 'targetPf' | 'designedBank' | 'onProgress'> {
+  /** The board the bank goes on (by name). @defaultValue the main board */
+  readonly bankBoard?: string;
+}
+
+export interface InstallationProfileBoard {
+  readonly board: string;
+  /** The board feeding it; null for the main board. */
+  readonly fedFrom: string | null;
+  readonly limits: ResolvedLimits;
+  /** Currents: the supply at the main board, the incoming feeder at a sub-board. Billing: main board only. */
+  readonly before: ProfileSummary;
+  /** The same with the bank in, wherever the bank is; null without a bank. */
+  readonly after: ProfileSummary | null;
+}
+
+export interface InstallationProfileResult {
+  readonly installation: string;
+  readonly phaseNames: PhaseNaming;
+  readonly path: 'nodal';
+  readonly timeZone: string;
+  readonly intervals: { readonly count: number; readonly intervalSeconds: number; readonly first: string; readonly last: string };
+  readonly sequence: SequenceReport | null;
+  readonly undriven: { readonly loads: readonly string[]; readonly atRating: boolean } | null;
+  /** Board number order (main first). */
+  readonly boards: readonly InstallationProfileBoard[];
+  /** The bank and its run, on the board named; its `after` is that board's summary with the bank. */
+  readonly bank: (ProfileBankResult & { readonly board: string }) | null;
+  readonly cautions: readonly string[];
+}
+
+export interface InstallationProfileStudy {
+  readonly result: InstallationProfileResult;
+  readonly utcMs: Float64Array;
+  /** Per board (board number). */
+  readonly before: readonly IntervalFigures[];
+  readonly after: readonly IntervalFigures[] | null;
+  /** Switched kvar connected in each interval (nominal; the fixed part on top); null without a bank. */
+  readonly connectedKvar: Float64Array | null;
+  readonly label: (i: number) => string;
+}
+
+export function studyInstallationProfile(input: InstallationProfileInput, options: InstallationProfileOptions = {}): InstallationProfileStudy {
+  const { installation } = input;
+  const n = input.columns.count;
+  const zone = options.timeZone ?? 'UTC';
+  const bankAt = installationBoardIndex(installation, options.bankBoard, 'bankBoard');
+  const { localMs, monthKey, label, labelUtc } = profileClock(input.utcMs, zone);
+  const names = boardNamesOf(installation);
+  const boards = names.map((_, b) => boardOfInstallation(installation, b));
+  const contexts = boards.map((board, b): SummaryContext => {
+    // profile.limits hold for every board but the neutral threshold, which is the main board's; a sub-board's
+    // neutral is judged against its feeder's neutral rating. The tariff prices the supply only.
+    const spec = b === 0 || !input.profile?.limits?.neutralA ? input.profile : { ...input.profile, limits: { ...input.profile.limits, neutralA: undefined } };
+    return { board, utcMs: input.utcMs, localMs, monthKey, intervalMs: input.intervalMs, limits: resolveLimits(board, spec), tariff: b === 0 ? input.profile?.tariff : undefined, label, labelUtc };
+  });
+  const before = allocateBoardFigures(installation, n);
+  const net = compileInstallationBatch(installation, input.loads, input.loadBoards, input.drivers);
+  solveInstallationBatch(net, input.columns, before, { onProgress: (d) => options.onProgress?.('solve', d, n) });
+
+  let after: IntervalFigures[] | null = null;
+  const withBank = bankOverProfile(
+    {
+      board: boards[bankAt]!,
+      before: before[bankAt]!,
+      intervalMs: input.intervalMs,
+      label,
+      ...(input.profile ? { profile: input.profile } : {}),
+      summarise: (f) => summariseFigures(f, contexts[bankAt]!),
+      simulate: (steps, fixed, settings) => {
+        const figures = allocateBoardFigures(installation, n);
+        after = figures;
+        return switchBank({ board: boards[bankAt]!, figures: figures[bankAt]!, utcMs: input.utcMs, intervalMs: input.intervalMs, steps, fixed, settings }, (extra) => {
+          const withSteps = compileInstallationBatch(installation, input.loads, input.loadBoards, input.drivers, extra.map((e) => ({ ...e, board: bankAt })));
+          const kernel = createInstallationKernel(withSteps);
+          const index = new Map(withSteps.edges.map((e, k) => [`${e.board}|${e.from}|${e.to}|${e.vNominal}`, k]));
+          return {
+            edgeCount: withSteps.edges.length,
+            path: 'nodal',
+            edgeIndex: (e) => index.get(`${bankAt}|${e.from}|${e.to}|${e.vNominal}`) ?? -1,
+            powersAt: (i, out) => edgePowersAt(withSteps, input.columns, i, out),
+            solve: (powers, i) => {
+              kernel.solve(powers, i);
+              kernel.states.forEach((s, b) => recordInterval(s, installation.main.sequence, figures[b]!, i));
+            },
+          };
+        });
+      },
+    },
+    options,
+  );
+  const afterFigures = withBank ? after : null;
+  const result: InstallationProfileResult = {
+    installation: installation.name,
+    phaseNames: conventionsOf(installation.main).phaseNames,
+    path: 'nodal',
+    timeZone: zone,
+    intervals: { count: n, intervalSeconds: input.intervalMs / 1000, first: label(0), last: label(n - 1) },
+    sequence: input.sequence ?? null,
+    undriven: input.undriven ?? null,
+    boards: boards.map((board, b) => ({
+      board: board.name,
+      fedFrom: b === 0 ? null : names[installation.subBoards[b - 1]!.fedFrom]!,
+      limits: contexts[b]!.limits,
+      before: summariseFigures(before[b]!, contexts[b]!),
+      after: afterFigures ? summariseFigures((afterFigures as IntervalFigures[])[b]!, contexts[b]!) : null,
+    })),
+    bank: withBank ? { board: names[bankAt]!, ...withBank.bank } : null,
+    cautions: PROFILE_CAUTIONS,
+  };
+  return { result, utcMs: input.utcMs, before, after: afterFigures, connectedKvar: withBank?.run.connectedKvar ?? null, label };
+}

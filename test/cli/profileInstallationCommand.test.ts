@@ -1,0 +1,165 @@
+/**
+ * `trivar profile` on an installation file: the invented Osier Mill studios (an intake board,
+ * a pottery across the yard on a long 16 mm² feeder with its own ±5 % band, a print room fed
+ * from the pottery) with one day of half-hourly readings (examples/osier-mill-day.csv).
+ * The peak interval's figures are checked against solveInstallation on the same loads.
+ */
+import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { beforeAll, describe, expect, it } from 'vitest';
+import { readBoardText, solveInstallation } from '@trivar/core';
+import { ROOT, runTrivar, type RunResult } from './runTrivar.js';
+
+const FILE = 'examples/osier-mill-studios.yaml';
+const DATA = 'examples/osier-mill-day.csv';
+let text: RunResult;
+let json: RunResult;
+let dir = '';
+
+beforeAll(() => {
+  dir = mkdtempSync(join(tmpdir(), 'trivar-profile-installation-'));
+  text = runTrivar(['profile', FILE, '--data', DATA]);
+  json = runTrivar(['profile', FILE, '--data', DATA, '--json']);
+});
+
+/** The file with each load at the 20:00 reading (kilns on, the mill winding down). */
+function stateAt2000(): unknown {
+  const spec = readBoardText(readFileSync(`${ROOT}${FILE}`, 'utf8')) as { boards: { loads: { name: string; kW: number; pf?: number }[] }[] };
+  // The 20:00 row: kilns 1 (x), Compressor 0.05 (x), Cafe 0.30 kW, lighting 0.5 (x), the rest 0.
+  const row = readFileSync(`${ROOT}${DATA}`, 'utf8').split('\n').find((l) => l.startsWith('2026-03-10T20:00'))!;
+  expect(row).toBe('2026-03-10T20:00,1,0.05,0.30,0.5,0,0,0');
+  const at: Record<string, (kW: number) => number> = {
+    'Large kiln': (kW) => kW,
+    'Small kiln': (kW) => kW,
+    Compressor: (kW) => 0.05 * kW,
+    Cafe: () => 0.3,
+    'Workshop lighting': (kW) => 0.5 * kW,
+  };
+  return { ...spec, profile: undefined, boards: spec.boards.map((b) => ({ ...b, loads: b.loads.filter((l) => at[l.name]).map((l) => ({ ...l, kW: at[l.name]!(l.kW) })) })) };
+}
+
+describe('trivar profile on an installation', () => {
+  it('prints a row per board and each board against its own band', () => {
+    expect(text.stderr).toBe('');
+    expect(text.code).toBe(0);
+    expect(text.stdout).toMatch(/^Osier Mill studios — load over time, every board$/m);
+    expect(text.stdout).toMatch(/^ {2}48 intervals of 1800 s, 2026-03-10 00:00 to 2026-03-10 23:30 \(UTC\)$/m);
+    expect(text.stdout).toMatch(/^ {2}Mill intake +supply +[\d.]+ +200 .* 90-110 /m);
+    expect(text.stdout).toMatch(/^ {2}Pottery +Mill intake +[\d.]+ +68 .* 95-105 /m);
+    expect(text.stdout).toMatch(/^ {2}Print room +Pottery +[\d.]+ +36 .* 90-110 /m);
+    expect(text.stdout).toContain('Pottery — currents in the feeder from Mill intake');
+    expect(text.stdout).toContain("below 95 % voltage: 0 h · above 105 %: 0 h (the board's limits, custom)");
+    expect(text.stdout).toContain('Calendar months at the supply (Mill intake)');
+  });
+
+  it('the peak interval agrees with solveInstallation on the same loads, board by board', () => {
+    expect(json.code).toBe(0);
+    const r = JSON.parse(json.stdout);
+    expect(r.boards.map((b: { board: string; fedFrom: string | null }) => [b.board, b.fedFrom])).toEqual([
+      ['Mill intake', null],
+      ['Pottery', 'Mill intake'],
+      ['Print room', 'Pottery'],
+    ]);
+    const solved = solveInstallation(stateAt2000());
+    // Line A peaks at 20:00 at the intake and in the pottery feeder (the large kiln is on line A).
+    for (const [b, name] of [
+      [0, 'Mill intake'],
+      [1, 'Pottery'],
+    ] as const) {
+      const lineA = r.boards[b].before.conductors[0];
+      expect(lineA.maxAt).toBe('2026-03-10 20:00');
+      const feeder = solved.feeders.find((f) => f.board === name)!;
+      expect(lineA.maxA).toBeCloseTo(feeder.lines[0]!.current.magnitude, 6);
+      const bus = solved.boards.find((x) => x.name === name)!.result;
+      const lowestA = r.boards[b].before.voltages[0];
+      expect(lowestA.minAt).toBe('2026-03-10 20:00');
+      expect(lowestA.minPercent).toBeCloseTo(bus.phases[0]!.voltagePercent, 6);
+    }
+    // The pottery's own ±5 %, the installation's EN 50160 elsewhere.
+    expect(r.boards.map((b: { limits: { voltageLowPercent: number; voltageHighPercent: number } }) => [b.limits.voltageLowPercent, b.limits.voltageHighPercent])).toEqual([
+      [90, 110],
+      [95, 105],
+      [90, 110],
+    ]);
+    // Billing at the supply only: the tariff's demand charge on the intake, none on the sub-boards.
+    expect(r.boards[0].before.months[0].demandCharge).toBeGreaterThan(0);
+    expect(r.boards[1].before.months[0].demandCharge).toBeNull();
+  });
+
+  it('a bank on the pottery is measured at its incomer and every board is summarised with it', () => {
+    const r = runTrivar(['profile', FILE, '--data', DATA, '--bank', '--board', 'Pottery', '--pf', '0.98', '--json']);
+    expect(r.stderr).toBe('');
+    expect(r.code).toBe(0);
+    const out = JSON.parse(r.stdout);
+    expect(out.bank.board).toBe('Pottery');
+    expect(out.boards.every((b: { after: unknown }) => b.after !== null)).toBe(true);
+    // The bank's own summary is the pottery's, with the bank in.
+    expect(out.bank.after).toEqual(out.boards[1].after);
+    // Capacitors on the pottery lift the pottery's billing power factor, and the supply's with it.
+    expect(out.boards[1].after.energy.billingPf).toBeGreaterThan(out.boards[1].before.energy.billingPf);
+    expect(out.boards[0].after.energy.kvarhLagging).toBeLessThan(out.boards[0].before.energy.kvarhLagging);
+  });
+
+  it('--correction-bank simulates the bank trivar correct designs on the board the correction section names', () => {
+    const file = join(dir, 'with-correction.yaml');
+    writeFileSync(file, `${readFileSync(`${ROOT}${FILE}`, 'utf8')}correction:\n  arrangement: star-bank\n  board: Pottery\n  target: { pf: 0.95 }\n`);
+    const designed = runTrivar(['correct', file, '--json']);
+    expect(designed.code).toBe(0);
+    const selection = JSON.parse(designed.stdout).report.selection;
+    const r = runTrivar(['profile', file, '--data', `${ROOT}${DATA}`, '--correction-bank', '--json']);
+    expect(r.stderr).toBe('');
+    expect(r.code).toBe(0);
+    const bank = JSON.parse(r.stdout).bank;
+    expect(bank.board).toBe('Pottery');
+    expect(bank.source).toBe('correction-study');
+    expect(bank.steps.map((s: { step: number }) => s.step)).toEqual(selection.steps.map((s: { output: number }) => s.output));
+    expect(runTrivar(['profile', file, '--data', `${ROOT}${DATA}`, '--correction-bank', '--pf', '0.9']).stderr).toContain('--pf sets the target');
+    expect(runTrivar(['profile', FILE, '--data', DATA, '--correction-bank']).stderr).toContain('no correction section naming an arrangement');
+  });
+
+  it('writes the summary and per-interval CSV with a board to every row and column set', () => {
+    const summary = join(dir, 'summary.csv');
+    const intervals = join(dir, 'intervals.csv');
+    const r = runTrivar(['profile', FILE, '--data', DATA, '--summary-csv', summary, '--intervals-csv', intervals]);
+    expect(r.code).toBe(0);
+    const peak = JSON.parse(json.stdout).boards[1].before.conductors[0].maxA;
+    const rows = readFileSync(summary, 'utf8').trim().split('\n');
+    expect(rows[0]).toBe('board,figure,where,before,after,unit');
+    const potteryPeak = rows.find((l) => l.startsWith('Pottery,peak current,line A,'))!.split(',');
+    expect(Number(potteryPeak[3])).toBeCloseTo(peak, 5);
+    const lines = readFileSync(intervals, 'utf8').trim().split('\n');
+    expect(lines).toHaveLength(49);
+    const head = lines[0]!.split(',');
+    expect(head.slice(0, 3)).toEqual(['time', 'Mill intake: line A A', 'Mill intake: line B A']);
+    const column = head.indexOf('Pottery: line A A');
+    const at2000 = lines.find((l) => l.startsWith('2026-03-10 20:00'))!.split(',');
+    expect(Number(at2000[column])).toBeCloseTo(peak, 2);
+  });
+
+  it('refuses unknown and ambiguous load names, naming the column', () => {
+    const bad = join(dir, 'bad.csv');
+    writeFileSync(bad, 'time,Kiln [x],Pottery/Press [x]\n2026-03-10T00:00,1,1\n');
+    const r = runTrivar(['profile', FILE, '--data', bad]);
+    expect(r.code).not.toBe(0);
+    expect(r.stderr).toMatch(/column 2 \("Kiln \[x\]"\)/);
+    expect(r.stderr).toMatch(/column 3 \("Pottery\/Press \[x\]"\)/);
+    const twice = join(dir, 'twice.yaml');
+    // A second board with a load of the same name makes the bare name ambiguous.
+    writeFileSync(twice, readFileSync(`${ROOT}${FILE}`, 'utf8').replace('- { name: Drying cabinet,', '- { name: Cafe,'));
+    const amb = runTrivar(['profile', twice, '--data', `${ROOT}${DATA}`]);
+    expect(amb.code).not.toBe(0);
+    expect(amb.stderr).toContain('"Mill intake/Cafe", "Print room/Cafe"');
+    expect(amb.stderr).toMatch(/column 4 \("Cafe \[kW\]"\)/);
+  });
+
+  it('names the option that does not fit', () => {
+    const r = runTrivar(['profile', FILE, '--data', DATA, '--bank', '--board', 'Kiln shed']);
+    expect(r.code).not.toBe(0);
+    expect(r.stderr).toContain('--board');
+    expect(r.stderr).toContain('"Pottery"');
+    const csv = runTrivar(['profile', FILE, '--data', DATA, '--charts', join(dir, 'charts')]);
+    expect(csv.code).not.toBe(0);
+    expect(csv.stderr).toContain('--charts is not available for installation files yet');
+  });
+});
