@@ -51,7 +51,7 @@ export const profileBankSchema = z
   .strictObject({
     targetPf: powerFactor.optional().describe('power factor the controller aims for; default 0.95'),
     coverShare: z.number().gt(0).max(1).optional().describe('share of intervals whose need the sized bank covers; default 0.95'),
-    stepCount: z.number().int().min(1).max(16).optional().describe('number of equal steps when sizing from the profile; default 6'),
+    stepCount: z.number().int().min(1).max(16).optional().describe('most equal steps when sizing from the profile (fewer where the need is covered by fewer of the smallest units); default 6'),
     steps: z.array(bankStepSchema).min(1).max(24).optional().describe('steps as built (skips sizing from the profile)'),
     responseShare: z.number().gt(0).max(1.5).optional().describe('switching threshold as a share of the smallest step (C/k setting); default 0.67'),
     delaySeconds: nonNegative.max(3600).optional().describe('time a need must persist before a step switches; default 30 s'),

@@ -1,9 +1,11 @@
 /**
  * Steps of an automatic bank sized from the profile: the bank holds the target
  * power factor in `coverShare` of the intervals (the need at that percentile of
- * the intervals), split into equal steps. Three-phase steps are rounded up to
- * 2.5 kvar and single-phase steps to 0.5 kvar, the granularity of common
- * catalogue units (common practice, no source).
+ * the intervals), split into at most `stepCount` equal steps. Three-phase steps
+ * are rounded up to 2.5 kvar and single-phase steps to 0.5 kvar, the granularity
+ * of common catalogue units (common practice, no source). A small need takes
+ * fewer steps: six 2.5 kvar steps for a 3.3 kvar need would install 15 kvar, far
+ * past what the board ever asks for, so the count stops where the steps cover the need.
  */
 import type { Board } from '../board/boardModel.js';
 import type { SwitchedStep } from './bankController.js';
@@ -17,6 +19,12 @@ export interface StepSizing {
 }
 
 const roundUp = (x: number, unit: number) => Math.ceil(x / unit - 1e-9) * unit;
+
+/** Equal steps of at least `unit` (rounded up to it) covering `need`: at most `most` of them, no more than the need calls for. */
+function equalSteps(need: number, most: number, unit: number): { each: number; count: number } {
+  const each = Math.max(unit, roundUp(need / most, unit));
+  return { each, count: Math.min(most, Math.max(1, Math.ceil(need / each - 1e-9))) };
+}
 
 export function sizeBankSteps(
   board: Board,
@@ -40,8 +48,8 @@ export function sizeBankSteps(
       const need = needOf((i) => [before.phaseW[k]![i]!, before.phaseVar[k]![i]!]);
       needKvar[p] = need;
       if (need <= 0) return;
-      const each = Math.max(0.5, roundUp(need / options.stepCount, 0.5));
-      for (let s = 0; s < options.stepCount; s++) steps.push({ kvar: each, channel: p });
+      const { each, count } = equalSteps(need, options.stepCount, 0.5);
+      for (let s = 0; s < count; s++) steps.push({ kvar: each, channel: p });
     });
   } else {
     const need = needOf((i) => {
@@ -55,8 +63,8 @@ export function sizeBankSteps(
     });
     needKvar.ABC = need;
     if (need > 0) {
-      const each = Math.max(2.5, roundUp(need / options.stepCount, 2.5));
-      for (let s = 0; s < options.stepCount; s++) steps.push({ kvar: each, channel: 'ABC' });
+      const { each, count } = equalSteps(need, options.stepCount, 2.5);
+      for (let s = 0; s < count; s++) steps.push({ kvar: each, channel: 'ABC' });
     }
   }
   return { steps, needKvar };
