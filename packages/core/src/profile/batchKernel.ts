@@ -21,6 +21,18 @@ export interface IntervalState {
   iterations: number;
 }
 
+/** Sets `reference` to the centroid of the first `np` bus voltages: a board without a neutral bar (or with it dead). */
+export function referenceAtCentroid(state: IntervalState, np: number): void {
+  let cr = 0;
+  let ci = 0;
+  for (let k = 0; k < np; k++) {
+    cr += state.busRe[k]!;
+    ci += state.busIm[k]!;
+  }
+  state.reference[0] = cr / np;
+  state.reference[1] = ci / np;
+}
+
 export interface BatchKernel {
   readonly path: 'closed-form' | 'nodal';
   readonly state: IntervalState;

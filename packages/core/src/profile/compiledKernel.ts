@@ -9,7 +9,7 @@ import { compileBoard } from '../network/solveNetwork.js';
 import { REFERENCE } from '../network/circuit.js';
 import type { Board, BoardLoad, ZipFractions } from '../board/boardModel.js';
 import type { BatchNetwork } from './batchNetwork.js';
-import { newIntervalState, resolveKernelOptions, type BatchKernel, type KernelOptions } from './batchKernel.js';
+import { newIntervalState, referenceAtCentroid, resolveKernelOptions, type BatchKernel, type KernelOptions } from './batchKernel.js';
 
 const PARTS: readonly ZipFractions[] = [
   { z: 1, i: 0, p: 0 },
@@ -113,14 +113,7 @@ export function createCompiledKernel(net: BatchNetwork, options?: KernelOptions)
           state.neutral[1] = inIm;
         }
       } else {
-        let cr = 0;
-        let ci = 0;
-        for (let k = 0; k < np; k++) {
-          cr += state.busRe[k]!;
-          ci += state.busIm[k]!;
-        }
-        state.reference[0] = cr / np;
-        state.reference[1] = ci / np;
+        referenceAtCentroid(state, np);
         state.neutral.fill(0);
       }
       state.iterations = network.iterations;

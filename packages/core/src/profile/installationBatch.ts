@@ -14,7 +14,7 @@ import { REFERENCE } from '../network/circuit.js';
 import { compileInstallation } from '../network/solveNetwork.js';
 import { compileCircuit, type CompiledNetwork } from '../network/compiledNetwork.js';
 import { foldDrivers, edgePowersAt, type BatchEdge, type DriverColumns, type DriverSpec } from './batchNetwork.js';
-import { newIntervalState, resolveKernelOptions, type IntervalState, type KernelOptions } from './batchKernel.js';
+import { newIntervalState, referenceAtCentroid, resolveKernelOptions, type IntervalState, type KernelOptions } from './batchKernel.js';
 import { allocateFigures, recordInterval, type IntervalFigures } from './solveBatch.js';
 
 /** An edge on one board (0 = main, i + 1 = subBoards[i]). */
@@ -212,14 +212,7 @@ export function createInstallationKernel(net: InstallationBatchNetwork, options?
           state.reference[0] = vRe(bar);
           state.reference[1] = vIm(bar);
         } else {
-          let cr = 0;
-          let ci = 0;
-          for (let k = 0; k < np; k++) {
-            cr += state.busRe[k]!;
-            ci += state.busIm[k]!;
-          }
-          state.reference[0] = cr / np;
-          state.reference[1] = ci / np;
+          referenceAtCentroid(state, np);
         }
         if (!hasNeutral || neutralOpen(b)) {
           state.neutral.fill(0);
