@@ -44,7 +44,7 @@ export { validateInstallation, parseInstallation } from './boardFile/validateIns
 export { isInstallationInput } from './board/installationInput.js';
 export { normaliseInstallation } from './board/normaliseInstallation.js';
 export type { FeederSpec, PerPhaseConductorSpec, WindingSpec } from './board/boardSchema.js';
-export type { ConductorMaterial, ConductorSize, ConductorResistance } from './board/cableLibrary.js';
+export type { ConductorMaterial, ConductorSize, ConductorResistance, ConductorReactance, ConduitKind } from './board/cableLibrary.js';
 export { conductorReactance, conductorResistance, DEFAULT_CABLE_REACTANCE_OHM_PER_KM, DEFAULT_CONDUCTOR_TEMPERATURE_C } from './board/cableLibrary.js';
 export { installationOf, boardOfInstallation } from './network/installationModel.js';
 export type { InstallationSolution, CompiledInstallation } from './network/solveNetwork.js';
