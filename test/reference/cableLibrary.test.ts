@@ -172,37 +172,28 @@ describe('cable library against the published tables', () => {
     expect(result.feeders[1]!.lossesKW * 1000).toBeCloseTo(current * current * 0.524 * 0.05 * 1.5, 6);
     expect(result.feeders[1]!.description).toBe('35 mm² Cu, 50 m at 20 °C; neutral 35 mm² Cu ×2, 50 m at 20 °C');
   });
-  it('an AWG feeder on a 60 Hz board carries Table 8 resistance and Table 9 reactance times length', () => {
-    const result = solveInstallation({
+  /** A 120 V heater of 2 Ω on a board 200 ft from the main over 1/0 AWG copper line and neutral. */
+  const awgShop = (conduit?: 'steel') =>
+    solveInstallation({
       supply: { system: 'three-phase-4wire', voltage: { lineToNeutral: 120 }, frequencyHz: 60 },
       boards: [
         { name: 'Main', loads: [] },
         {
           name: 'Shop',
           fedFrom: 'Main',
-          feeder: { lengthFt: 200, line: { awg: '1/0' }, neutral: { awg: '1/0' } },
+          feeder: { lengthFt: 200, line: { awg: '1/0', ...(conduit && { conduit }) }, neutral: { awg: '1/0', ...(conduit && { conduit }) } },
           loads: [{ name: 'heater', connection: 'A-N', ohms: { r: 2, x: 0 } }],
         },
       ],
     });
+  it('an AWG feeder on a 60 Hz board carries Table 8 resistance and Table 9 reactance times length', () => {
     // Line and neutral in series: 2 × 0.2 kft × (0.122 Ω/kft at 75 °C + j0.044 Ω/kft).
     const r = 2 + 2 * 0.2 * 0.122;
     const x = 2 * 0.2 * 0.044;
-    expect(result.feeders[1]!.lines[0]!.current.magnitude).toBeCloseTo(120 / Math.hypot(r, x), 9);
+    expect(awgShop().feeders[1]!.lines[0]!.current.magnitude).toBeCloseTo(120 / Math.hypot(r, x), 9);
   });
-  it('the same feeder in steel conduit takes Table 9\'s steel column (0.055 Ω/kft for 1/0) and says so', () => {
-    const result = solveInstallation({
-      supply: { system: 'three-phase-4wire', voltage: { lineToNeutral: 120 }, frequencyHz: 60 },
-      boards: [
-        { name: 'Main', loads: [] },
-        {
-          name: 'Shop',
-          fedFrom: 'Main',
-          feeder: { lengthFt: 200, line: { awg: '1/0', conduit: 'steel' }, neutral: { awg: '1/0', conduit: 'steel' } },
-          loads: [{ name: 'heater', connection: 'A-N', ohms: { r: 2, x: 0 } }],
-        },
-      ],
-    });
+  it("the same feeder in steel conduit takes Table 9's steel column (0.055 Ω/kft for 1/0) and says so", () => {
+    const result = awgShop('steel');
     const r = 2 + 2 * 0.2 * 0.122;
     const x = 2 * 0.2 * 0.055;
     expect(result.feeders[1]!.lines[0]!.current.magnitude).toBeCloseTo(120 / Math.hypot(r, x), 9);
