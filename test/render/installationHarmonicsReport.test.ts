@@ -173,7 +173,7 @@ describe('installation report with two banks: the scan with the other banks swit
         expect(row[4]).toBe(c.nearest!.otherBanks);
         expect(row[5]).toBe(c.nearOrders.map((n) => n.order).join(', ') || '—');
       });
-      expect(joint.note).toMatch(/other banks scanned at .*every level a controller steps each through, combined; \d+ networks/);
+      expect(joint.note).toMatch(/other banks scanned at .*every state of their steps, whatever order they switch in, combined; \d+ networks/);
     }
     // The machine shop's full bank is clear of the 7th with the finishing shop's on, on it with that bank off.
     const machine = harmonics.scans.find((s) => s.board === 'Machine shop')!;

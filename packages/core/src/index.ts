@@ -189,7 +189,7 @@ export type { FixedInstallationInput } from './network/solveFixedInstallation.js
 export { solveFixedInstallation } from './network/solveFixedInstallation.js';
 export type { ScanEvaluator, ScanBank, BankState } from './harmonics/scanEvaluator.js';
 export type { JointScanOptions, NetworkState } from './harmonics/scanJointResonance.js';
-export { scanJointResonance, scanNetworkStates, controllerLevels } from './harmonics/scanJointResonance.js';
+export { scanJointResonance, scanNetworkStates, controllerLevels, switchingLevels } from './harmonics/scanJointResonance.js';
 export { scanResonance, createScanEvaluator, scanGrid, stepCombinations, roundForPlot, shortCircuitVA } from './harmonics/scanResonance.js';
 export { DUTY_LIMITS, dutyFigures } from './harmonics/capacitorDuty.js';
 export { dutyConditions, withCapacitanceFactor, withLoadsOff, withOtherBanksOff, conditionWords } from './harmonics/dutyConditions.js';

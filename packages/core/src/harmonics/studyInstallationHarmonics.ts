@@ -116,7 +116,7 @@ function installationAssumptions(main: Board, models: readonly HarmonicModel[], 
   return [
     ...assumptions(main, merged, banks.length > 1),
     'sub-board feeders per conductor like the service feeder (line and neutral); each feeder neutral carries its boards’ zero-sequence (triplen) current back towards the source',
-    ...(banks.length > 1 ? [harmonicsAssumptionText.jointScan, ...scans.flatMap((s) => (s.jointScan && s.jointScan.coverage !== 'controller levels' ? [harmonicsAssumptionText.jointScanReduced(s.board, s.jointScan)] : []))] : []),
+    ...(banks.length > 1 ? [harmonicsAssumptionText.jointScan, ...scans.flatMap((s) => (s.jointScan && s.jointScan.coverage !== 'every step combination' ? [harmonicsAssumptionText.jointScanReduced(s.board, s.jointScan)] : []))] : []),
   ];
 }
 
