@@ -361,6 +361,27 @@ describe('capacitor duty with the other banks out of service', () => {
   const both = studyInstallationHarmonics(example);
   const alone = studyInstallationHarmonics({ ...example, harmonics: { ...example.harmonics, banks: example.harmonics.banks.slice(0, 1) } });
 
+  it('a state of the other bank near a checked order is checked too: Finishing shop with Machine shop at steps 1+3 equals the file with only those steps', () => {
+    // From Finishing shop, the joint scan puts a peak near a checked order with Machine shop at steps 1+3
+    // (90 kvar: a level stepping 30, 30, 60 in the written order never reaches).
+    const duty = both.scans.find((s) => s.board === 'Finishing shop')!.capacitorDuty!;
+    const step1 = duty.cases.find((c) => c.label === 'step 1')!;
+    expect(step1.condition).toEqual({ capacitancePercent: 110, loads: 'off', otherBanks: 'switched', otherBanksState: 'Machine shop bank steps 1+3' });
+    expect(both.assumptions.some((a) => a.includes('in each state at which the joint scan puts a peak within ±10 % of a checked order'))).toBe(true);
+    // The same network written another way: Machine shop's bank as its steps 1 and 3 alone (30 + 60 kvar), all on.
+    const banks = example.harmonics.banks as { board: string; stepsKvar: number[] }[];
+    const written = { ...example, harmonics: { ...example.harmonics, banks: banks.map((b) => (b.board === 'Machine shop' ? { ...b, stepsKvar: [b.stepsKvar[0]!, b.stepsKvar[2]!] } : b)) } };
+    const same = studyInstallationHarmonics(written).scans.find((s) => s.board === 'Finishing shop')!.capacitorDuty!.cases.find((c) => c.label === 'step 1')!;
+    expect(same.condition).toEqual({ capacitancePercent: 110, loads: 'off', otherBanks: 'on' });
+    for (const key of ['voltageRms', 'voltagePeak', 'currentRms', 'kvar'] as const) {
+      figures.note('duty at a switched state vs the file written with those steps on, relative', Math.abs(step1.figures[key] - same.figures[key]) / same.figures[key], key);
+      expect(Math.abs(step1.figures[key] - same.figures[key])).toBeLessThan(1e-9 * same.figures[key]);
+    }
+    // 1.20 × rated current: the worst of this bank's duty (with Machine shop fully on or out of service it was 1.07).
+    expect(step1.figures.currentRms).toBeCloseTo(1.2022, 3);
+    expect(duty.worst).toEqual(step1);
+  });
+
   it('every state is checked with the other bank on and out of service; off equals the file without that bank', () => {
     const duty = both.scans.find((s) => s.board === 'Machine shop')!.capacitorDuty!;
     const single = alone.scans[0]!.capacitorDuty!;

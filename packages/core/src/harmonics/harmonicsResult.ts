@@ -206,8 +206,12 @@ export interface DutyCondition {
   readonly capacitancePercent: number;
   /** `as given`: the board's loads as in the file; `off`: every load off, the highest voltage a bank on a lagging board sees. */
   readonly loads: 'as given' | 'off';
-  /** On an installation with other banks: whether they are all fully on or all out of service. */
-  readonly otherBanks?: 'on' | 'off';
+  /**
+   * On an installation with other banks: all fully on, all out of service, or `switched` to the
+   * state (`otherBanksState`, in words) at which the joint scan found a peak nearest a checked order.
+   */
+  readonly otherBanks?: 'on' | 'off' | 'switched';
+  readonly otherBanksState?: string;
 }
 
 export interface DutyCase {
