@@ -213,6 +213,8 @@ export { rebalanceBoard } from './rebalance/rebalanceBoard.js';
 export { rebalanceInstallation } from './rebalance/rebalanceInstallation.js';
 export { conditionsFromScenarios } from './rebalance/rebalanceRules.js';
 export { conditionsFromIntervals } from './rebalance/intervalConditions.js';
+export { conditionsFromInstallationIntervals } from './rebalance/installationIntervalConditions.js';
+export type { InstallationIntervalConditions } from './rebalance/installationIntervalConditions.js';
 export type { IntervalConditions, IntervalConditionOptions, IntervalPick, LoadConditionInput } from './rebalance/intervalConditions.js';
 export { rewriteInstallationText } from './rebalance/rewriteBoardText.js';
 export type * from './rebalance/rebalanceResult.js';
