@@ -9,6 +9,7 @@ import type { BoardResult } from '../../analysis/boardResult.js';
 import { analyseSolution, readLinePowers, readSequenceCurrents, type SequenceReading } from '../../analysis/analyseSolution.js';
 import { compileBoard, readInstallationSolution, type CompiledBoard, type NetworkSolution, type SolveOptions } from '../../network/solveNetwork.js';
 import { resolveSolveOptions } from '../../network/solveOptions.js';
+import { REFERENCE } from '../../network/networkTopology.js';
 import type { ComplexValue } from '../../complex.js';
 import type { MeteringPlace } from '../meteringPoint.js';
 import { conventionsOf } from '../../board/conventions/boardConventions.js';
@@ -84,14 +85,19 @@ export function createProbe(board: Board, slots: readonly BranchSlot[], name: st
   };
 }
 
+/** A network compiled for trials: the first added branch is circuit branch `first`. */
+interface CompiledTrial {
+  readonly c: CompiledBoard;
+  readonly first: number;
+}
+
 /** Exact text of a vector of outputs (−0 kept apart from 0). */
 const keyOf = (kvar: readonly number[]): string => kvar.map((q) => (Object.is(q, -0) ? '-0' : String(q))).join(' ');
 
 /**
  * Solves the base board with trial equipment, compiling once per sizing loop instead of once
  * per candidate. Candidates differ only in the added branches' values, which a compiled network
- * takes as new branch powers; it is recompiled only when the set of zero-valued branches
- * changes, since a zero branch joins nothing (an all-zero floating star point is a dead node).
+ * takes as new branch powers (see `networkFor` for when another network is needed).
  * Every candidate's solve is the one `solveNetwork` would do: same network, same start.
  * A trial writes its branch powers straight into the network; the equipped `Board`, the
  * board's whole solution and its analysis are built only when a caller reads them.
@@ -105,32 +111,58 @@ function trialSolver(
 ): (kvar: readonly number[]) => ProbeState {
   // The added loads' branches in the order `addCorrectionEquipment` adds them: slot indices.
   const order = groups(slots.map(() => 1)).flatMap((g) => g.branches.map((b) => slots.findIndex((s) => s.branch === b.branch)));
-  const compiled = new Map<string, { c: CompiledBoard; first: number }>();
+  const toStar = order.map((i) => slots[i]!.to === 'star');
   const opts = resolveSolveOptions(options);
   const power = new Float64Array(order.length);
-  return (kvar) => {
+  const compileWith = (kvar: readonly number[]): CompiledTrial => {
+    const c = compileBoard(addCorrectionEquipment(base, groups(kvar)));
+    let first = c.installation.layout.branchOffset[c.boardIndex]!;
+    for (let l = 0; l < base.loads.length; l++) first += base.loads[l]!.branches.length;
+    return { c, first };
+  };
+  // A compiled network depends on the branch values only through which nodes are live (reach the
+  // source). A branch between two nodes live without it changes none, so one network, compiled with
+  // those branches at zero, serves every value of theirs; a floating star point is live only through
+  // its own branches, so its zero pattern picks the network. Where an end would be dead without the
+  // branch, networks are kept per zero pattern of every branch.
+  const shared = new Map<string, CompiledTrial | null>();
+  const perPattern = new Map<string, CompiledTrial>();
+  const networkFor = (kvar: readonly number[]): CompiledTrial => {
+    let starZeros = '';
     let zeros = '';
+    for (let j = 0; j < order.length; j++) {
+      zeros += power[j] === 0 ? '0' : '1';
+      if (toStar[j]) starZeros += power[j] === 0 ? '0' : '1';
+    }
+    let entry = shared.get(starZeros);
+    if (entry === undefined) {
+      const trial = compileWith(kvar.map((q, i) => (slots[i]!.to === 'star' ? q : 0)));
+      const net = trial.c.network;
+      const live = (node: number) => node === REFERENCE || net.live[node] === 1;
+      const endsLive = order.every((_, j) => {
+        const b = net.circuit.branches[trial.first + j]!;
+        return toStar[j] || (live(b.from) && live(b.to));
+      });
+      shared.set(starZeros, (entry = endsLive ? trial : null));
+    }
+    if (entry) return entry;
+    let exact = perPattern.get(zeros);
+    if (!exact) perPattern.set(zeros, (exact = compileWith(kvar)));
+    return exact;
+  };
+  return (kvar) => {
     for (let j = 0; j < order.length; j++) {
       const slot = slots[order[j]!]!;
       // The arithmetic of equipmentGroups + addCorrectionEquipment (design state, factor 1), to the bit.
       power[j] = equipmentPower(cleanSusceptance(susceptanceFromKvar(kvar[order[j]!]!, slot.vNominal), slot.vNominal), slot.vNominal).im;
-      zeros += power[j] === 0 ? '0' : '1';
     }
     const outputs = [...kvar];
     let equipped: Board | undefined;
     const board = () => (equipped ??= addCorrectionEquipment(base, groups(outputs)));
-    let entry = compiled.get(zeros);
-    if (!entry) {
-      const c = compileBoard(board());
-      let first = c.installation.layout.branchOffset[c.boardIndex]!;
-      for (let l = 0; l < base.loads.length; l++) first += base.loads[l]!.branches.length;
-      compiled.set(zeros, (entry = { c, first }));
-    } else {
-      const net = entry.c.network;
-      for (let j = 0; j < order.length; j++) {
-        net.powerRe[entry.first + j] = 0;
-        net.powerIm[entry.first + j] = power[j]!;
-      }
+    const entry = networkFor(kvar);
+    for (let j = 0; j < order.length; j++) {
+      entry.c.network.powerRe[entry.first + j] = 0;
+      entry.c.network.powerIm[entry.first + j] = power[j]!;
     }
     const { c } = entry;
     const net = c.network;
