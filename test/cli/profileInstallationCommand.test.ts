@@ -4,7 +4,7 @@
  * from the pottery) with one day of half-hourly readings (examples/osier-mill-day.csv).
  * The peak interval's figures are checked against solveInstallation on the same loads.
  */
-import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
+import { mkdtempSync, readdirSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { beforeAll, describe, expect, it } from 'vitest';
@@ -158,8 +158,41 @@ describe('trivar profile on an installation', () => {
     expect(r.code).not.toBe(0);
     expect(r.stderr).toContain('--board');
     expect(r.stderr).toContain('"Pottery"');
-    const csv = runTrivar(['profile', FILE, '--data', DATA, '--charts', join(dir, 'charts')]);
-    expect(csv.code).not.toBe(0);
-    expect(csv.stderr).toContain('--charts is not available for installation files yet');
+  });
+
+  it('--charts writes three charts per board and the feeder loading, their legends carrying the JSON figures', () => {
+    const out = join(dir, 'charts');
+    const r = runTrivar(['profile', FILE, '--data', DATA, '--bank', '--board', 'Pottery', '--charts', out, '--json']);
+    expect(r.stderr).toBe('');
+    expect(r.code).toBe(0);
+    const result = JSON.parse(r.stdout) as {
+      boards: { board: string; before: { conductors: { conductor: string; maxA: number; ratingA: number | null }[]; energy: { billingPf: number } }; after: { energy: { billingPf: number } } }[];
+    };
+    expect(readdirSync(out).sort()).toEqual(['feeder-loading.svg', 'mill-intake', 'pottery', 'print-room']);
+    const legends = (svg: string) => [...svg.matchAll(/<text x="[\d.]+" y="[\d.]+">([^<]*\(peak [^<]*|[^<]*billing PF [^<]*)<\/text>/g)].map((m) => m[1]!);
+    const peakOf = (legend: string) => Number(/peak ([\d.]+)/.exec(legend)![1]);
+    for (const [folder, b] of [['mill-intake', 0], ['pottery', 1], ['print-room', 2]] as const) {
+      const board = result.boards[b]!;
+      expect(readdirSync(join(out, folder)).sort()).toEqual(['currents.svg', 'load-duration.svg', 'power-factor.svg']);
+      const currents = readFileSync(join(out, folder, 'currents.svg'), 'utf8');
+      expect(currents).toMatch(/^<svg [^>]*>[\s\S]*<\/svg>\n$/);
+      expect(currents).toContain(`<text x="58" y="20" font-size="13" font-weight="bold">${board.board}: line and neutral current`);
+      // One legend per conductor, in the JSON's order, each peak the JSON's to the 0.1 A printed.
+      const peaks = legends(currents);
+      expect(peaks.map((l) => l.split(' (')[0])).toEqual(board.before.conductors.map((c) => (c.conductor === 'N' ? 'neutral' : `line ${c.conductor}`)));
+      peaks.forEach((l, k) => expect(Math.abs(peakOf(l) - board.before.conductors[k]!.maxA)).toBeLessThanOrEqual(0.05));
+      expect(legends(readFileSync(join(out, folder, 'load-duration.svg'), 'utf8'))).toEqual(peaks);
+      const pf = legends(readFileSync(join(out, folder, 'power-factor.svg'), 'utf8'));
+      expect(pf).toEqual([`before (billing PF ${board.before.energy.billingPf.toFixed(3)})`, `with bank (billing PF ${board.after.energy.billingPf.toFixed(3)})`]);
+    }
+    // The feeder loading: each board's busiest incomer line against its rating (200, 68 and 36 A in the file).
+    const loading = legends(readFileSync(join(out, 'feeder-loading.svg'), 'utf8'));
+    expect(loading.map((l) => l.replace(/ \(.*/, ''))).toEqual(['Mill intake', 'Pottery', 'Print room']);
+    loading.forEach((l, b) => {
+      const lines = result.boards[b]!.before.conductors.filter((c) => c.conductor !== 'N');
+      const rating = lines[0]!.ratingA!;
+      expect(l).toContain(`% of ${rating} A)`);
+      expect(Math.abs(peakOf(l) - (100 * Math.max(...lines.map((c) => c.maxA))) / rating)).toBeLessThanOrEqual(0.05);
+    });
   });
 });

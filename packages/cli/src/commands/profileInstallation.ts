@@ -1,6 +1,9 @@
 /** `trivar profile` on an installation file: the interval data through every board and feeder at once. */
+import { mkdirSync } from 'node:fs';
 import { availableParallelism } from 'node:os';
+import { join } from 'node:path';
 import {
+  boardSectionIds,
   checkIntervalSequence,
   correctInstallation,
   driverColumns,
@@ -25,11 +28,15 @@ import { renderInstallationProfileReport } from '../format/installationProfileRe
 import { startProgress } from '../progress.js';
 import { assertNotInput, writeOutputFile } from '../outputFiles.js';
 import { installationIntervalCsv, installationSummaryCsv } from '../format/profileCsv.js';
+import { CHART_FILES, FEEDER_CHART_FILE, writeInstallationProfileCharts } from '../format/profileChartFiles.js';
 import type { ProfileCommandOptions } from './profile.js';
 import { inFileSection } from './correct.js';
 
-/** What installation files do not take yet, by option. */
-const NOT_FOR_INSTALLATIONS: readonly [keyof ProfileCommandOptions, string][] = [['charts', '--charts']];
+/** A folder per board for its charts, named after the board (`Mill intake` → `mill-intake`), unique. */
+export function chartFolders(names: readonly string[]): Map<string, string> {
+  const ids = boardSectionIds(names);
+  return new Map(names.map((n) => [n, ids.get(n)!.replace(/^board-/, '')]));
+}
 
 /**
  * The bank trivar correct designs for the installation (its correction section, on the board
@@ -57,10 +64,10 @@ function designedInstallationBank(spec: ReturnType<typeof parseInstallation>, in
 export async function runProfileInstallation(input: unknown, options: ProfileCommandOptions, io: CliIo, inputs: readonly string[] = []): Promise<InstallationProfileStudy> {
   const spec = parseInstallation(input);
   const { installation } = normaliseInstallation(spec);
-  for (const [key, option] of NOT_FOR_INSTALLATIONS)
-    if (options[key] !== undefined && options[key] !== false) throw new UsageError(`${option} is not available for installation files yet (single board files only); leave it out to get the per-board report`);
   if (!options.data) throw new UsageError('give the interval data with --data <file.csv> (profile.scenarios are read on single board files only)');
-  assertNotInput([options.summaryCsv, options.intervalsCsv].filter((x): x is string => x !== undefined), [...inputs, options.data]);
+  const folders = chartFolders([installation.main.name, ...installation.subBoards.map((b) => b.name)]);
+  const chartFiles = options.charts ? [...[...folders.values()].flatMap((f) => CHART_FILES.map((name) => join(options.charts!, f, name))), join(options.charts, FEEDER_CHART_FILE)] : [];
+  assertNotInput([options.summaryCsv, options.intervalsCsv, ...chartFiles].filter((x): x is string => x !== undefined), [...inputs, options.data]);
   if (options.board !== undefined && !options.bank && !options.correctionBank) throw new UsageError('--board places the bank: give --bank or --correction-bank too');
   if (options.correctionBank && options.bank) throw new UsageError('give either --bank (a bank sized from the profile) or --correction-bank (the correction study\'s bank), not both');
   if (options.correctionBank && options.pf !== undefined)
@@ -110,6 +117,11 @@ export async function runProfileInstallation(input: unknown, options: ProfileCom
   const label = labellerOf(study.result.phaseNames);
   if (options.summaryCsv) writeOutputFile(options.summaryCsv, installationSummaryCsv(study.result, label));
   if (options.intervalsCsv) writeOutputFile(options.intervalsCsv, installationIntervalCsv(study, installation.main.nominalLineToNeutralV, label));
+  if (options.charts) {
+    const dir = options.charts;
+    for (const folder of folders.values()) mkdirSync(join(dir, folder), { recursive: true });
+    writeInstallationProfileCharts(study, (name, text) => writeOutputFile(join(dir, name), text), (board) => folders.get(board)!, label);
+  }
   writeResult(io, study.result, options.json, (r) => renderInstallationProfileReport(r, spec.profile?.tariff?.currency ?? 'units'));
   return study;
 }
