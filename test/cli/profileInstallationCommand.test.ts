@@ -153,6 +153,46 @@ describe('trivar profile on an installation', () => {
     expect(amb.stderr).toMatch(/column 4 \("Cafe \[kW\]"\)/);
   });
 
+  it('without --data runs profile.scenarios through every board, the text and JSON agreeing', () => {
+    const t = runTrivar(['profile', FILE]);
+    expect(t.stderr).toBe('');
+    expect(t.code).toBe(0);
+    const j = runTrivar(['profile', FILE, '--json']);
+    expect(j.code).toBe(0);
+    const r = JSON.parse(j.stdout) as { hours: number; boards: { board: string; fedFrom: string | null; scenarios: { name: string; hours: number; lineA: number[]; kW: number; pf: number }[]; billingPf: number }[] };
+    expect(t.stdout).toMatch(/^Osier Mill studios — scenarios \(8760 h\), every board$/m);
+    expect(r.boards.map((b) => b.board)).toEqual(['Mill intake', 'Pottery', 'Print room']);
+    // Each board's table: its rows are the JSON's figures as printed.
+    for (const b of r.boards) {
+      const block = t.stdout.split(`${b.board} — currents in the ${b.fedFrom === null ? 'supply to the main board' : `feeder from ${b.fedFrom}`}`)[1]!;
+      for (const s of b.scenarios) {
+        const row = new RegExp(`^  ${s.name} +${s.hours} +${s.lineA.map((a) => a.toFixed(1)).join(' +')} .* ${s.kW.toFixed(1)} .* ${s.pf.toFixed(3)}$`, 'm');
+        expect(block).toMatch(row);
+      }
+      expect(block).toContain(`billing power factor ${b.billingPf.toFixed(3)}`);
+    }
+    expect(t.stdout).toContain('every scenario within 95-105 % (the board\'s limits, custom)');
+    // The firing night: the large kiln on line A through the pottery's feeder.
+    expect(r.boards[1]!.scenarios[0]!.lineA[0]).toBeGreaterThan(35);
+  });
+
+  it('scenarios: a load no board has is named by its field; options for interval data are refused', () => {
+    const bad = join(dir, 'bad-scenario.yaml');
+    writeFileSync(bad, readFileSync(`${ROOT}${FILE}`, 'utf8').replace('loads: { Workshop lighting: 0.05 }', 'loads: { Workshop lamps: 0.05 }'));
+    const r = runTrivar(['profile', bad]);
+    expect(r.code).not.toBe(0);
+    expect(r.stderr).toContain('profile.scenarios[2].loads.Workshop lamps');
+    expect(r.stderr).not.toMatch(/at .*\.js:\d+/);
+    const charts = runTrivar(['profile', FILE, '--charts', join(dir, 'scenario-charts')]);
+    expect(charts.code).toBe(2);
+    expect(charts.stderr).toContain('--charts works on interval data');
+    const none = join(dir, 'no-scenarios.yaml');
+    writeFileSync(none, readFileSync(`${ROOT}${FILE}`, 'utf8').split('  # Without --data')[0]!);
+    const noData = runTrivar(['profile', none]);
+    expect(noData.code).toBe(2);
+    expect(noData.stderr).toContain('give the interval data with --data <file.csv>, or scenarios under profile.scenarios');
+  });
+
   it('names the option that does not fit', () => {
     const r = runTrivar(['profile', FILE, '--data', DATA, '--bank', '--board', 'Kiln shed']);
     expect(r.code).not.toBe(0);

@@ -252,8 +252,10 @@ export { parseHandFigures } from './handCheck/validateHandFigures.js';
 export type * from './handCheck/handCheckResult.js';
 export { checkHandFigures, addHandCapacitors } from './handCheck/checkHandFigures.js';
 export { textbookWorking } from './handCheck/textbookWorking.js';
-export type { ScenarioReading, ScenarioResult } from './profile/studyScenarios.js';
+export type { ScenarioReading, ScenarioResult, BoardScenarios } from './profile/studyScenarios.js';
 export { studyScenarios } from './profile/studyScenarios.js';
+export type { InstallationScenarioBoard, InstallationScenarioResult } from './profile/studyInstallationScenarios.js';
+export { studyInstallationScenarios } from './profile/studyInstallationScenarios.js';
 export type { SwitchingFromBank } from './profile/switchingFromBank.js';
 export { switchingFromBank } from './profile/switchingFromBank.js';
 // Regional conventions: phase names, voltage notation, voltage limits, region wording.

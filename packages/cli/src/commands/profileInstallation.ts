@@ -18,13 +18,15 @@ import {
   planDrivers,
   planInstallationColumns,
   studyInstallationProfile,
+  studyInstallationScenarios,
+  conventionsOf,
   type InstallationProfileStudy,
 } from '@trivar/core';
 import type { CliIo } from '../io.js';
 import { UsageError } from '../exitCodes.js';
 import { writeResult } from '../writeResult.js';
 import { readCsvHeader, readIntervalRows } from '../read/intervalCsv.js';
-import { renderInstallationProfileReport } from '../format/installationProfileReport.js';
+import { renderInstallationProfileReport, renderInstallationScenarioReport } from '../format/installationProfileReport.js';
 import { startProgress } from '../progress.js';
 import { assertNotInput, writeOutputFile } from '../outputFiles.js';
 import { installationIntervalCsv, installationSummaryCsv } from '../format/profileCsv.js';
@@ -61,10 +63,34 @@ function designedInstallationBank(spec: ReturnType<typeof parseInstallation>, in
   return { bank: switchingFromBank(selection.steps, selection.controller), board };
 }
 
-export async function runProfileInstallation(input: unknown, options: ProfileCommandOptions, io: CliIo, inputs: readonly string[] = []): Promise<InstallationProfileStudy> {
+/** Options that need interval data, refused beside scenarios rather than left unused. */
+const DATA_ONLY: readonly [keyof ProfileCommandOptions, string][] = [
+  ['bank', '--bank'],
+  ['correctionBank', '--correction-bank'],
+  ['board', '--board'],
+  ['pf', '--pf'],
+  ['charts', '--charts'],
+  ['summaryCsv', '--summary-csv'],
+  ['intervalsCsv', '--intervals-csv'],
+  ['fillGaps', '--fill-gaps'],
+  ['unlistedAtRating', '--unlisted-at-rating'],
+];
+
+/** The file's `profile.scenarios` through every board at once (no interval data). */
+function runInstallationScenarios(spec: ReturnType<typeof parseInstallation>, installation: Installation, options: ProfileCommandOptions, io: CliIo): null {
+  if (!spec.profile?.scenarios)
+    throw new UsageError('give the interval data with --data <file.csv>, or scenarios under profile.scenarios in the installation file (see trivar profile --help)');
+  for (const [key, option] of DATA_ONLY)
+    if (options[key] !== undefined && options[key] !== false) throw new UsageError(`${option} works on interval data: give --data <file.csv> (profile.scenarios give each board's figures per scenario)`);
+  const result = studyInstallationScenarios(installation, spec.profile);
+  writeResult(io, result, options.json, (r) => renderInstallationScenarioReport(r, labellerOf(conventionsOf(installation.main).phaseNames)));
+  return null;
+}
+
+export async function runProfileInstallation(input: unknown, options: ProfileCommandOptions, io: CliIo, inputs: readonly string[] = []): Promise<InstallationProfileStudy | null> {
   const spec = parseInstallation(input);
   const { installation } = normaliseInstallation(spec);
-  if (!options.data) throw new UsageError('give the interval data with --data <file.csv> (profile.scenarios are read on single board files only)');
+  if (!options.data) return runInstallationScenarios(spec, installation, options, io);
   const folders = chartFolders([installation.main.name, ...installation.subBoards.map((b) => b.name)]);
   const chartFiles = options.charts ? [...[...folders.values()].flatMap((f) => CHART_FILES.map((name) => join(options.charts!, f, name))), join(options.charts, FEEDER_CHART_FILE)] : [];
   assertNotInput([options.summaryCsv, options.intervalsCsv, ...chartFiles].filter((x): x is string => x !== undefined), [...inputs, options.data]);
