@@ -240,7 +240,7 @@ export { renderReportHtml } from './render/report/renderReportHtml.js';
 export type { MarkdownReport } from './render/report/renderReportMarkdown.js';
 export { renderReportMarkdown } from './render/report/renderReportMarkdown.js';
 export type { ProfileChart } from './render/report/profileSection.js';
-export { profileSection } from './render/report/profileSection.js';
+export { profileSection, installationProfileSections } from './render/report/profileSection.js';
 export { boardSectionIds } from './render/report/installationSections.js';
 export { harmonicsSection } from './render/report/harmonicsSection.js';
 export { installationHarmonicsSections } from './render/report/installationHarmonicsSections.js';

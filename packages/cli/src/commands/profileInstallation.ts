@@ -87,13 +87,17 @@ function runInstallationScenarios(spec: ReturnType<typeof parseInstallation>, in
   return null;
 }
 
-export async function runProfileInstallation(input: unknown, options: ProfileCommandOptions, io: CliIo, inputs: readonly string[] = []): Promise<InstallationProfileStudy | null> {
-  const spec = parseInstallation(input);
-  const { installation } = normaliseInstallation(spec);
-  if (!options.data) return runInstallationScenarios(spec, installation, options, io);
-  const folders = chartFolders([installation.main.name, ...installation.subBoards.map((b) => b.name)]);
-  const chartFiles = options.charts ? [...[...folders.values()].flatMap((f) => CHART_FILES.map((name) => join(options.charts!, f, name))), join(options.charts, FEEDER_CHART_FILE)] : [];
-  assertNotInput([options.summaryCsv, options.intervalsCsv, ...chartFiles].filter((x): x is string => x !== undefined), [...inputs, options.data]);
+/**
+ * Reads the interval data and runs the profile study on a parsed installation (no files written);
+ * `trivar profile` and `trivar report --profile-data` share it.
+ */
+export async function computeInstallationProfileStudy(
+  spec: ReturnType<typeof parseInstallation>,
+  installation: Installation,
+  data: string,
+  options: ProfileCommandOptions,
+  io: CliIo,
+): Promise<InstallationProfileStudy> {
   if (options.board !== undefined && !options.bank && !options.correctionBank) throw new UsageError('--board places the bank: give --bank or --correction-bank too');
   if (options.correctionBank && options.bank) throw new UsageError('give either --bank (a bank sized from the profile) or --correction-bank (the correction study\'s bank), not both');
   if (options.correctionBank && options.pf !== undefined)
@@ -104,18 +108,17 @@ export async function runProfileInstallation(input: unknown, options: ProfileCom
   const bankBoard = options.board ?? designed?.board;
   const zone = options.timeZone ?? 'UTC';
   if (!isKnownTimeZone(zone)) throw new UsageError(`--time-zone: "${zone}" is not a time zone this system knows (expected an IANA name such as Europe/Lisbon or America/Chicago)`);
-  const plan = planInstallationColumns(installation, readCsvHeader(options.data), {
+  const plan = planInstallationColumns(installation, readCsvHeader(data), {
     ...(spec.profile?.groups ? { groups: spec.profile.groups } : {}),
     undrivenAtRating: options.unlistedAtRating ?? false,
   });
   const progress = startProgress(io);
-  let study: InstallationProfileStudy;
   try {
     progress.stage('reading', 1);
     const threads = options.threads ?? Math.min(2, availableParallelism());
-    const raw = await readIntervalRows(options.data, plan, { timeZone: zone }, threads);
+    const raw = await readIntervalRows(data, plan, { timeZone: zone }, threads);
     const table = checkIntervalSequence(raw, options.fillGaps ?? 'none');
-    study = studyInstallationProfile(
+    return studyInstallationProfile(
       {
         installation,
         loads: plan.board.loads,
@@ -140,13 +143,23 @@ export async function runProfileInstallation(input: unknown, options: ProfileCom
   } finally {
     progress.stop();
   }
+}
+
+export async function runProfileInstallation(input: unknown, options: ProfileCommandOptions, io: CliIo, inputs: readonly string[] = []): Promise<InstallationProfileStudy | null> {
+  const spec = parseInstallation(input);
+  const { installation } = normaliseInstallation(spec);
+  if (!options.data) return runInstallationScenarios(spec, installation, options, io);
+  const folders = chartFolders([installation.main.name, ...installation.subBoards.map((b) => b.name)]);
+  const chartFiles = options.charts ? [...[...folders.values()].flatMap((f) => CHART_FILES.map((name) => join(options.charts!, f, name))), join(options.charts, FEEDER_CHART_FILE)] : [];
+  assertNotInput([options.summaryCsv, options.intervalsCsv, ...chartFiles].filter((x): x is string => x !== undefined), [...inputs, options.data]);
+  const study = await computeInstallationProfileStudy(spec, installation, options.data, options, io);
   const label = labellerOf(study.result.phaseNames);
   if (options.summaryCsv) writeOutputFile(options.summaryCsv, installationSummaryCsv(study.result, label));
   if (options.intervalsCsv) writeOutputFile(options.intervalsCsv, installationIntervalCsv(study, installation.main.nominalLineToNeutralV, label));
   if (options.charts) {
     const dir = options.charts;
     for (const folder of folders.values()) mkdirSync(join(dir, folder), { recursive: true });
-    writeInstallationProfileCharts(study, (name, text) => writeOutputFile(join(dir, name), text), (board) => folders.get(board)!, label);
+    writeInstallationProfileCharts(study, (board, name, text) => writeOutputFile(board === null ? join(dir, name) : join(dir, folders.get(board)!, name), text), label);
   }
   writeResult(io, study.result, options.json, (r) => renderInstallationProfileReport(r, spec.profile?.tariff?.currency ?? 'units'));
   return study;

@@ -98,25 +98,18 @@ export function writeProfileCharts(study: ProfileStudy, write: (name: string, te
 }
 
 /**
- * Every board's charts (into `folderOf(board)`), and the feeder loading: each board's incomer (the supply
- * at the main board, its feeder at a sub-board), the busiest line in each interval as a share of the line
- * rating — boards without a line rating are left out of it, and without any the chart is not written.
- * @returns the names written, folder-relative (`<folder>/currents.svg`, …)
+ * Every board's charts (`write(board, name, text)`), and the feeder loading (`write(null, …)`): each board's
+ * incomer (the supply at the main board, its feeder at a sub-board), the busiest line in each interval as
+ * a share of the line rating — boards without a line rating are left out of it, and without any the chart
+ * is not written.
  */
 export function writeInstallationProfileCharts(
   study: InstallationProfileStudy,
-  write: (name: string, text: string) => void,
-  folderOf: (board: string) => string,
+  write: (board: string | null, name: string, text: string) => void,
   label: PhaseLabeller = labellerOf(study.result.phaseNames),
-): string[] {
+): void {
   const r = study.result;
-  const written: string[] = [];
-  const put = (name: string, text: string) => {
-    write(name, text);
-    written.push(name);
-  };
-  r.boards.forEach((b, i) => {
-    const folder = folderOf(b.board);
+  r.boards.forEach((b, i) =>
     writeBoardCharts(
       {
         board: b.board,
@@ -128,10 +121,10 @@ export function writeInstallationProfileCharts(
         intervalSeconds: r.intervals.intervalSeconds,
         label: study.label,
       },
-      (name, text) => put(`${folder}/${name}`, text),
+      (name, text) => write(b.board, name, text),
       label,
-    );
-  });
+    ),
+  );
   const loading = r.boards.flatMap((b, i) => {
     const rating = b.before.conductors.find((c) => c.conductor !== 'N')?.ratingA ?? null;
     if (rating === null) return [];
@@ -142,6 +135,5 @@ export function writeInstallationProfileCharts(
     return [{ name: `${b.board} (peak ${fixed((100 * peak) / rating, 1)} % of ${fixed(rating, 0)} A)`, values }];
   });
   if (loading.length)
-    put(FEEDER_CHART_FILE, renderTimeChart({ title: `${r.installation}: busiest line of each board's incomer, % of its rating`, unit: '%', series: loading, labelOf: study.label }));
-  return written;
+    write(null, FEEDER_CHART_FILE, renderTimeChart({ title: `${r.installation}: busiest line of each board's incomer, % of its rating`, unit: '%', series: loading, labelOf: study.label }));
 }
