@@ -242,7 +242,8 @@ export { renderReportHtml } from './render/report/renderReportHtml.js';
 export type { MarkdownReport } from './render/report/renderReportMarkdown.js';
 export { renderReportMarkdown } from './render/report/renderReportMarkdown.js';
 export type { ProfileChart } from './render/report/profileSection.js';
-export { profileSection } from './render/report/profileSection.js';
+export { profileSection, installationProfileSections } from './render/report/profileSection.js';
+export { boardSectionIds } from './render/report/installationSections.js';
 export { harmonicsSection } from './render/report/harmonicsSection.js';
 export { installationHarmonicsSections } from './render/report/installationHarmonicsSections.js';
 
@@ -253,8 +254,10 @@ export { parseHandFigures } from './handCheck/validateHandFigures.js';
 export type * from './handCheck/handCheckResult.js';
 export { checkHandFigures, addHandCapacitors } from './handCheck/checkHandFigures.js';
 export { textbookWorking } from './handCheck/textbookWorking.js';
-export type { ScenarioReading, ScenarioResult } from './profile/studyScenarios.js';
+export type { ScenarioReading, ScenarioResult, BoardScenarios } from './profile/studyScenarios.js';
 export { studyScenarios } from './profile/studyScenarios.js';
+export type { InstallationScenarioBoard, InstallationScenarioResult } from './profile/studyInstallationScenarios.js';
+export { studyInstallationScenarios } from './profile/studyInstallationScenarios.js';
 export type { SwitchingFromBank } from './profile/switchingFromBank.js';
 export { switchingFromBank } from './profile/switchingFromBank.js';
 // Regional conventions: phase names, voltage notation, voltage limits, region wording.
