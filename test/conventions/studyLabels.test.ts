@@ -9,10 +9,11 @@ import { mkdtempSync, readdirSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { beforeAll, describe, expect, it } from 'vitest';
-import { checkHandFigures, correctBoard, labellerOf, normaliseBoard, parseBoard, readBoardText, studyHarmonics } from '@trivar/core';
+import { checkHandFigures, correctBoard, labellerOf, normaliseBoard, parseBoard, readBoardText, studyHarmonics, studyScenarios } from '@trivar/core';
 import { renderCorrectionReport } from '../../packages/cli/src/format/correctionReport.js';
 import { renderHandCheckReport } from '../../packages/cli/src/format/handCheckReport.js';
 import { renderHarmonicsReport } from '../../packages/cli/src/format/harmonicsReport.js';
+import { renderScenarioReport } from '../../packages/cli/src/format/profileReport.js';
 import { figuresOf, inNumberedNames, LETTERED_LABEL, NUMBERED_LABEL, textOfMarkup } from '../support/phaseNaming.js';
 import { ROOT, runTrivar } from '../cli/runTrivar.js';
 
@@ -198,6 +199,11 @@ describe('profile and report follow the file naming (built CLI)', () => {
     expect(house.code).toBe(0);
     expect(house.stdout).toMatch(/line L1, A {2}line L2, A/);
     expect(house.stdout).not.toMatch(/\bL3\b|line C|\bthree/);
+    // The result carries the file's naming, so the renderer needs no label from its caller.
+    const spec = readBoardText(inNumberedNames(example('maple-lane-house.yaml')) + scenarios) as Parameters<typeof parseBoard>[0];
+    const result = studyScenarios(normaliseBoard(parseBoard(spec)), parseBoard(spec).profile!);
+    expect(result.phaseNames).toBe('L1/L2/L3');
+    expect(renderScenarioReport(result)).toMatch(/line L1, A {2}line L2, A/);
   });
 
   it('report: the correction, hand-check and load-over-time sections and their drawings in L-names', () => {

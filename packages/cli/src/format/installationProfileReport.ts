@@ -98,7 +98,7 @@ export function renderInstallationProfileReport(r: InstallationProfileResult, cu
 }
 
 /** The installation's scenarios (no interval data): a table per board, its incomer's currents and its own voltage band. */
-export function renderInstallationScenarioReport(r: InstallationScenarioResult, label: PhaseLabeller): string {
+export function renderInstallationScenarioReport(r: InstallationScenarioResult, label: PhaseLabeller = labellerOf(r.phaseNames)): string {
   const parts = [`${r.installation} — scenarios (${fixed(r.hours, 0)} h), every board`, '  solved on the nodal path: every board and feeder at once in each scenario'];
   for (const b of r.boards) {
     parts.push(section(`${b.board} — currents in the ${b.fedFrom === null ? 'supply to the main board' : `feeder from ${b.fedFrom}`}`), scenarioTable(b, label), scenarioYearLine(b));

@@ -223,7 +223,7 @@ export const OVER_RATING_CAUTION = '  Conductors above their rating overheat in 
 
 /** The report of a board file's scenarios (no interval data). */
 /** @param label the board file's phase labels (`labellerOf(conventionsOf(board).phaseNames)`) */
-export function renderScenarioReport(r: ScenarioResult, label: PhaseLabeller = LETTERED): string {
+export function renderScenarioReport(r: ScenarioResult, label: PhaseLabeller = labellerOf(r.phaseNames)): string {
   const over = scenarioOverRating(r, label);
   return `${[
     `${r.board} — scenarios (${fixed(r.hours, 0)} h)`,

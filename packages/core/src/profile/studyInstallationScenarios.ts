@@ -8,6 +8,8 @@
  * it, else `<board>/<load>`.
  */
 import type { Installation } from '../board/boardModel.js';
+import type { PhaseNaming } from '../board/conventions/phaseNames.js';
+import { conventionsOf } from '../board/conventions/boardConventions.js';
 import { InputError, inputIssue, type InputIssue } from '../errors.js';
 import { boardOfInstallation } from '../network/installationModel.js';
 import { NOISE_FLOOR_RELATIVE } from '../analysis/noiseFloor.js';
@@ -35,6 +37,8 @@ export interface InstallationScenarioResult {
   readonly hours: number;
   /** Board number order (main first). */
   readonly boards: readonly InstallationScenarioBoard[];
+  /** How the file names its phases (L1/L2/L3 or A/B/C): renderers label lines this way. */
+  readonly phaseNames: PhaseNaming;
 }
 
 const EXPECTED_LOAD = 'a load name on one board, "<board>/<load>", or a group from profile.groups';
@@ -108,5 +112,6 @@ export function studyInstallationScenarios(installation: Installation, profile: 
         ...read,
       };
     }),
+    phaseNames: conventionsOf(installation.main).phaseNames,
   };
 }

@@ -6,6 +6,8 @@
  * figures are shared with the installation's scenarios (studyInstallationScenarios.ts).
  */
 import type { Board } from '../board/boardModel.js';
+import type { PhaseNaming } from '../board/conventions/phaseNames.js';
+import { conventionsOf } from '../board/conventions/boardConventions.js';
 import { InputError, inputIssue, type InputIssue } from '../errors.js';
 import { compileBatchNetwork, type DriverSpec } from './batchNetwork.js';
 import { ratedPower } from './columnPlan.js';
@@ -39,6 +41,8 @@ export interface ScenarioResult extends BoardScenarios {
   readonly board: string;
   readonly path: 'closed-form' | 'nodal';
   readonly hours: number;
+  /** How the board file names its phases (L1/L2/L3 or A/B/C): renderers label lines this way. */
+  readonly phaseNames: PhaseNaming;
 }
 
 const YEAR_HOURS = 8760;
@@ -131,5 +135,5 @@ export function studyScenarios(board: Board, profile: ProfileSpec): ScenarioResu
   const { path } = solveBatch(compileBatchNetwork(board, drivers), columns, figures);
   const { scenarios: readings, ...year } = readBoardScenarios(board, figures, scenarios, hours);
   // Keys in the order the JSON has always had them.
-  return { board: board.name, path, scenarios: readings, hours: hours.reduce((a, b) => a + b, 0), ...year };
+  return { board: board.name, path, scenarios: readings, hours: hours.reduce((a, b) => a + b, 0), ...year, phaseNames: conventionsOf(board).phaseNames };
 }
