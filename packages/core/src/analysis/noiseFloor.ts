@@ -35,8 +35,12 @@ export function currentNoiseFloor(solution: NetworkSolution): number {
     const states = branches[l]!;
     for (let b = 0; b < states.length; b++) largest = Math.max(largest, abs(states[b]!.current));
   }
-  const board = solution.board;
-  return Math.max(NOISE_FLOOR_RELATIVE * largest, CONDUCTOR_RESOLUTION * board.nominalLineToNeutralV * stiffestAdmittance(board));
+  return noiseFloorFor(solution.board, largest);
+}
+
+/** The noise floor of a board whose largest current (line, neutral or load branch) is `largestCurrent`, A. */
+export function noiseFloorFor(board: NetworkSolution['board'], largestCurrent: number): number {
+  return Math.max(NOISE_FLOOR_RELATIVE * largestCurrent, CONDUCTOR_RESOLUTION * board.nominalLineToNeutralV * stiffestAdmittance(board));
 }
 
 /** The solution with every current under the noise floor set to zero. */
