@@ -35,12 +35,13 @@ export function currentNoiseFloor(solution: NetworkSolution): number {
     const states = branches[l]!;
     for (let b = 0; b < states.length; b++) largest = Math.max(largest, abs(states[b]!.current));
   }
-  return noiseFloorFor(solution.board, largest);
+  return noiseFloorFor(solution.board)(largest);
 }
 
-/** The noise floor of a board whose largest current (line, neutral or load branch) is `largestCurrent`, A. */
-export function noiseFloorFor(board: NetworkSolution['board'], largestCurrent: number): number {
-  return Math.max(NOISE_FLOOR_RELATIVE * largestCurrent, CONDUCTOR_RESOLUTION * board.nominalLineToNeutralV * stiffestAdmittance(board));
+/** A board's noise floor as a function of its largest current (line, neutral or load branch), A: for readers that solve one board many times. */
+export function noiseFloorFor(board: NetworkSolution['board']): (largestCurrent: number) => number {
+  const conductorFloor = CONDUCTOR_RESOLUTION * board.nominalLineToNeutralV * stiffestAdmittance(board);
+  return (largestCurrent) => Math.max(NOISE_FLOOR_RELATIVE * largestCurrent, conductorFloor);
 }
 
 /** The solution with every current under the noise floor set to zero. */

@@ -69,35 +69,39 @@ export function createProbe(board: Board, slots: readonly BranchSlot[], name: st
   const solveTrial = trialSolver(base, slots, groups, solve, meter);
   // A trial's solve depends on its outputs alone (every solve starts from the same state), so a
   // repeated question is answered from the state kept, bit for bit what solving again gives.
-  const remembered = new Map<string, ProbeState>();
+  const remembered: ProbeState[] = [];
+  let next = 0;
   return {
     slots,
     base,
     groups,
     solves: () => count,
     at(kvar) {
-      const key = keyOf(kvar);
-      const known = remembered.get(key);
+      const known = remembered.find((s) => sameOutputs(s.kvar, kvar));
       if (known) return known;
       count++;
       const state = solveTrial(kvar);
-      if (remembered.size >= REMEMBERED_STATES) remembered.delete(remembered.keys().next().value!);
-      remembered.set(key, state);
+      remembered[next] = state;
+      next = (next + 1) % REMEMBERED_STATES;
       return state;
     },
   };
+}
+
+/** The same outputs to the bit (−0 apart from 0). */
+function sameOutputs(a: readonly number[], b: readonly number[]): boolean {
+  if (a.length !== b.length) return false;
+  for (let i = 0; i < a.length; i++) if (!Object.is(a[i], b[i])) return false;
+  return true;
 }
 
 /** A network compiled for trials: the first added branch is circuit branch `first`. */
 interface CompiledTrial {
   readonly c: CompiledBoard;
   readonly first: number;
-  /** Board `b` of the compiled installation, as its solution names it (its layout and supply are what the line readings take). */
-  readonly boardAt: (b: number) => Board;
+  /** Board `b` of the compiled installation, as its solution names it (its layout and supply are what the line readings take), and its noise floor. */
+  readonly boardAt: (b: number) => { readonly board: Board; readonly floor: (largestCurrent: number) => number };
 }
-
-/** Exact text of a vector of outputs (−0 kept apart from 0). */
-const keyOf = (kvar: readonly number[]): string => kvar.map((q) => (Object.is(q, -0) ? '-0' : String(q))).join(' ');
 
 /**
  * Solves the base board with trial equipment, compiling once per sizing loop instead of once
@@ -123,8 +127,15 @@ function trialSolver(
     const c = compileBoard(addCorrectionEquipment(base, groups(kvar)));
     let first = c.installation.layout.branchOffset[c.boardIndex]!;
     for (let l = 0; l < base.loads.length; l++) first += base.loads[l]!.branches.length;
-    const boards = new Map<number, Board>();
-    const boardAt = (b: number) => boards.get(b) ?? boards.set(b, boardOfInstallation(c.installation.installation, b)).get(b)!;
+    const boards = new Map<number, { board: Board; floor: (largestCurrent: number) => number }>();
+    const boardAt = (b: number) => {
+      let known = boards.get(b);
+      if (!known) {
+        const board = boardOfInstallation(c.installation.installation, b);
+        boards.set(b, (known = { board, floor: noiseFloorFor(board) }));
+      }
+      return known;
+    };
     return { c, first, boardAt };
   };
   // A compiled network depends on the branch values only through which nodes are live (reach the
@@ -204,7 +215,7 @@ function trialSolver(
       for (const i of currents.lineCurrents) largest = Math.max(largest, abs(i));
       if (currents.neutralCurrent) largest = Math.max(largest, abs(currents.neutralCurrent));
       const atBoard = entry.boardAt(b);
-      return { lines: { board: atBoard, topology: layout.topologies[b]!, nodeVoltages, lineCurrents: currents.lineCurrents }, floor: noiseFloorFor(atBoard, largest) };
+      return { lines: { board: atBoard.board, topology: layout.topologies[b]!, nodeVoltages, lineCurrents: currents.lineCurrents }, floor: atBoard.floor(largest) };
     };
     const meterIndex = meter ? meter.meterIndex : c.boardIndex;
     const read = linesAt(meterIndex);
