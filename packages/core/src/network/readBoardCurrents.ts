@@ -41,27 +41,48 @@ export function readBoardCurrents(installation: Installation, layout: Installati
   const re = (node: number) => (node === REFERENCE || !net.live[node] ? 0 : net.voltageRe[node]!);
   const im = (node: number) => (node === REFERENCE || !net.live[node] ? 0 : net.voltageIm[node]!);
   const loadsOf = (b: number) => (b === 0 ? installation.main.loads : installation.subBoards[b - 1]!.loads);
-  const branchCurrent = (k: number): ComplexValue => {
+  // A load branch's current Y·(V_from − V_to), component by component as `mul` and `sub` form it (no object per branch).
+  let branchRe = 0;
+  let branchIm = 0;
+  const branchCurrent = (k: number): void => {
     const cb = layout.circuit.branches[k]!;
-    if (!live(cb.from) || !live(cb.to)) return ZERO;
-    return mul({ re: net.admittanceRe[k]!, im: net.admittanceIm[k]! }, { re: re(cb.from) - re(cb.to), im: im(cb.from) - im(cb.to) });
+    if (!live(cb.from) || !live(cb.to)) {
+      branchRe = 0;
+      branchIm = 0;
+      return;
+    }
+    const vr = re(cb.from) - re(cb.to);
+    const vi = im(cb.from) - im(cb.to);
+    const yr = net.admittanceRe[k]!;
+    const yi = net.admittanceIm[k]!;
+    branchRe = yr * vr - yi * vi;
+    branchIm = yr * vi + yi * vr;
   };
   const elementCurrent = (e: number) => {
     const el = layout.circuit.elements[e]!;
     return mul(el.admittance, { re: re(el.from) - re(el.to), im: im(el.from) - im(el.to) });
   };
   // Net current a board's own loads draw from a terminal (in load and branch order, as read there).
-  const own = (b: number, terminal: Terminal) => {
-    let total = ZERO;
+  const own = (b: number, terminal: Terminal): ComplexValue => {
+    let totalRe = 0;
+    let totalIm = 0;
     let k = layout.branchOffset[b]!;
     for (const l of loadsOf(b))
       for (const br of l.branches) {
-        const i = br.from === terminal || br.to === terminal ? branchCurrent(k) : ZERO;
-        if (br.from === terminal) total = add(total, i);
-        if (br.to === terminal) total = sub(total, i);
+        if (br.from === terminal || br.to === terminal) {
+          branchCurrent(k);
+          if (br.from === terminal) {
+            totalRe = totalRe + branchRe;
+            totalIm = totalIm + branchIm;
+          }
+          if (br.to === terminal) {
+            totalRe = totalRe - branchRe;
+            totalIm = totalIm - branchIm;
+          }
+        }
         k++;
       }
-    return total;
+    return { re: totalRe, im: totalIm };
   };
   const phases = installation.main.phases;
   const line = (b: number, k: number): ComplexValue => {
@@ -89,8 +110,8 @@ export function readBoardCurrents(installation: Installation, layout: Installati
   let count = 0;
   for (const l of loadsOf(board)) count += l.branches.length;
   for (let k = first; k < first + count; k++) {
-    const i = branchCurrent(k);
-    largest = Math.max(largest, Math.hypot(i.re, i.im));
+    branchCurrent(k);
+    largest = Math.max(largest, Math.hypot(branchRe, branchIm));
   }
   return {
     lineCurrents: phases.map((_, k) => line(board, k)),
