@@ -29,7 +29,7 @@ const PAIRS: Record<string, readonly [PhaseId, PhaseId][]> = {
 const percentOf = (x: ComplexValue, base: ComplexValue) => (abs(base) === 0 ? 0 : (100 * abs(x)) / abs(base));
 
 /** Voltages of the board's phase buses to the source star point, and what line-to-neutral loads see. */
-function boardVoltages(solution: NetworkSolution) {
+function boardVoltages(solution: Pick<NetworkSolution, 'board' | 'topology' | 'nodeVoltages'>) {
   const { board } = solution;
   const bus = board.phases.map((p) => terminalVoltage(solution, p) ?? ZERO);
   // Phase voltages are what line-to-neutral loads see: to the board neutral bar on a
@@ -135,7 +135,14 @@ function loadsBelowThreshold(solution: NetworkSolution) {
  * the correction's sizing loops read only these on most of their trial solves.
  */
 export function readLinePowers(solved: NetworkSolution): PowerReading[] {
-  const floor = currentNoiseFloor(solved);
+  return linePowersAbove(solved, currentNoiseFloor(solved));
+}
+
+/** What the line readings take of a solved board: its layout, node voltages and line currents. */
+export type SolvedLines = Pick<NetworkSolution, 'board' | 'topology' | 'nodeVoltages' | 'lineCurrents'>;
+
+/** `readLinePowers` with the board's noise floor given (see noiseFloor.ts), for readers that find it without a whole solution. */
+export function linePowersAbove(solved: SolvedLines, floor: number): PowerReading[] {
   const phase = boardVoltages(solved).phase;
   return solved.lineCurrents.map((i, k) => powerReading(mul(phase[k]!, conj(abs(i) < floor ? ZERO : i))));
 }
@@ -154,8 +161,12 @@ export interface SequenceReading {
  * same numbers) without the rest of the analysis; null on a board without three phases.
  */
 export function readSequenceCurrents(solved: NetworkSolution): SequenceReading | null {
+  return sequenceCurrentsAbove(solved, currentNoiseFloor(solved));
+}
+
+/** `readSequenceCurrents` with the board's noise floor given. */
+export function sequenceCurrentsAbove(solved: SolvedLines, floor: number): SequenceReading | null {
   if (!isThreePhase(solved.board.system)) return null;
-  const floor = currentNoiseFloor(solved);
   const lines = solved.lineCurrents.map((i) => (abs(i) < floor ? ZERO : i));
   const triple = (xs: readonly ComplexValue[]) => xs as unknown as [ComplexValue, ComplexValue, ComplexValue];
   const vs = sequenceComponents(triple(boardVoltages(solved).phase), solved.board.sequence);

@@ -35,8 +35,13 @@ export function currentNoiseFloor(solution: NetworkSolution): number {
     const states = branches[l]!;
     for (let b = 0; b < states.length; b++) largest = Math.max(largest, abs(states[b]!.current));
   }
-  const board = solution.board;
-  return Math.max(NOISE_FLOOR_RELATIVE * largest, CONDUCTOR_RESOLUTION * board.nominalLineToNeutralV * stiffestAdmittance(board));
+  return noiseFloorFor(solution.board)(largest);
+}
+
+/** A board's noise floor as a function of its largest current (line, neutral or load branch), A: for readers that solve one board many times. */
+export function noiseFloorFor(board: NetworkSolution['board']): (largestCurrent: number) => number {
+  const conductorFloor = CONDUCTOR_RESOLUTION * board.nominalLineToNeutralV * stiffestAdmittance(board);
+  return (largestCurrent) => Math.max(NOISE_FLOOR_RELATIVE * largestCurrent, conductorFloor);
 }
 
 /** The solution with every current under the noise floor set to zero. */

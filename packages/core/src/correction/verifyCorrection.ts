@@ -8,8 +8,9 @@ import * as z from 'zod';
 import type { Board, PhaseId } from '../board/boardModel.js';
 import type { BoardResult } from '../analysis/boardResult.js';
 import { analyseSolution } from '../analysis/analyseSolution.js';
-import { solveNetwork, type SolveOptions } from '../network/solveNetwork.js';
-import { abs } from '../complex.js';
+import { compileBoard, solveCompiledBoard, solveNetwork, type SolveOptions } from '../network/solveNetwork.js';
+import { resolveSolveOptions } from '../network/solveOptions.js';
+import { abs, type ComplexValue } from '../complex.js';
 import { supplyPathImpedance } from '../network/installationModel.js';
 import { lightLoadSchema, targetSchema, ARRANGEMENTS, type Arrangement, type CapacitanceToleranceSpec, type LightLoadSpec, type TargetSpec } from './correctionSpec.js';
 import { CORRECTION_DEFAULTS } from './correctionDefaults.js';
@@ -99,6 +100,32 @@ function solvedAsIs(board: Board): BoardResult {
   return result;
 }
 
+/**
+ * Solves and analyses boards that differ from `corrected` only in the equipment's values (the
+ * capacitance tolerance ends), compiling `corrected` once and writing each board's equipment
+ * values into the network: the solve `solveNetwork` does, since a compiled network depends on
+ * branch values only through which are zero. A board whose zero pattern differs is solved afresh.
+ */
+function equipmentValueSolver(corrected: Board, baseLoads: number, options: SolveOptions): (b: Board) => BoardResult {
+  const added = (b: Board) => b.loads.slice(baseLoads).flatMap((l) => l.branches);
+  const isZero = (p: ComplexValue) => p.re === 0 && p.im === 0;
+  const pattern = added(corrected).map((br) => isZero(br.sNominal));
+  resolveSolveOptions(options);
+  const compiled = compileBoard(corrected);
+  let first = compiled.installation.layout.branchOffset[compiled.boardIndex]!;
+  for (let l = 0; l < baseLoads; l++) first += corrected.loads[l]!.branches.length;
+  const net = compiled.network;
+  return (b) => {
+    const branches = added(b);
+    if (branches.length !== pattern.length || branches.some((br, j) => isZero(br.sNominal) !== pattern[j])) return analyseSolution(solveNetwork(b, options));
+    branches.forEach((br, j) => {
+      net.powerRe[first + j] = br.sNominal.re;
+      net.powerIm[first + j] = br.sNominal.im;
+    });
+    return analyseSolution(solveCompiledBoard({ ...compiled, board: b }, options));
+  };
+}
+
 export function verifyCorrection(board: Board, options: VerifyCorrectionOptions): CorrectionVerification {
   const opts = parseOptions(verifyOptionsSchema, options, 'verifyCorrection options');
   const arrangement = opts.arrangement ?? 'star-bank';
@@ -121,13 +148,18 @@ export function verifyCorrection(board: Board, options: VerifyCorrectionOptions)
   // Warnings name lines the way the board file does (L1 or A).
   const label = labellerOf(before.conventions.phaseNames);
   const corrected = addCorrectionEquipment(board, equipment);
-  const after = solve(corrected);
+  const solveEquipped = meter ? solve : equipmentValueSolver(corrected, board.loads.length, solveOptions);
+  const after = solveEquipped(corrected);
   const meteredBefore = judged(board, before);
   const meteredAfter = judged(corrected, after);
   const check = checkTarget(meteredAfter, target, meteredBefore);
   const branches = branchSizings(equipment, corrected, after);
-  const low = checkTarget(judged(addCorrectionEquipment(board, equipment, { capacitanceFactor: 1 - minus })), target, meteredBefore);
-  const high = checkTarget(judged(addCorrectionEquipment(board, equipment, { capacitanceFactor: 1 + plus })), target, meteredBefore);
+  const atTolerance = (capacitanceFactor: number) => {
+    const b = addCorrectionEquipment(board, equipment, { capacitanceFactor });
+    return checkTarget(meter ? judged(b) : solveEquipped(b), target, meteredBefore);
+  };
+  const low = atTolerance(1 - minus);
+  const high = atTolerance(1 + plus);
   if (check.met && !low.met) warn('tolerance-low', warningText.toleranceLow(low.shortfalls));
   if (high.leadingLines.length && !check.leadingLines.length) warn('tolerance-high', warningText.toleranceHigh(high.leadingLines.map(label)));
 

@@ -246,7 +246,7 @@ export function solveNetwork(board: Board, options?: SolveOptions): NetworkSolut
 }
 
 /** Voltage of a terminal in a solution (null when it is connected to nothing). */
-export function terminalVoltage(solution: NetworkSolution, terminal: Terminal): ComplexValue | null {
+export function terminalVoltage(solution: Pick<NetworkSolution, 'topology' | 'nodeVoltages'>, terminal: Terminal): ComplexValue | null {
   const node = solution.topology.terminalNode.get(terminal);
   if (node === undefined) return null;
   return voltageOf(solution.nodeVoltages, node);

@@ -6,11 +6,14 @@
  */
 import type { Board } from '../../board/boardModel.js';
 import type { BoardResult } from '../../analysis/boardResult.js';
-import { analyseSolution, readLinePowers, readSequenceCurrents, type SequenceReading } from '../../analysis/analyseSolution.js';
+import { analyseSolution, linePowersAbove, sequenceCurrentsAbove, type SequenceReading } from '../../analysis/analyseSolution.js';
+import { noiseFloorFor } from '../../analysis/noiseFloor.js';
+import { readBoardCurrents, type SolvedArrays } from '../../network/readBoardCurrents.js';
+import { boardOfInstallation } from '../../network/installationModel.js';
 import { compileBoard, readInstallationSolution, type CompiledBoard, type NetworkSolution, type SolveOptions } from '../../network/solveNetwork.js';
 import { resolveSolveOptions } from '../../network/solveOptions.js';
 import { REFERENCE } from '../../network/networkTopology.js';
-import type { ComplexValue } from '../../complex.js';
+import { abs, type ComplexValue } from '../../complex.js';
 import type { MeteringPlace } from '../meteringPoint.js';
 import { conventionsOf } from '../../board/conventions/boardConventions.js';
 import { addCorrectionEquipment, cleanSusceptance, equipmentGroups, equipmentPower, susceptanceFromKvar, type BranchSlot, type EquipmentGroup } from '../equipment.js';
@@ -66,33 +69,39 @@ export function createProbe(board: Board, slots: readonly BranchSlot[], name: st
   const solveTrial = trialSolver(base, slots, groups, solve, meter);
   // A trial's solve depends on its outputs alone (every solve starts from the same state), so a
   // repeated question is answered from the state kept, bit for bit what solving again gives.
-  const remembered = new Map<string, ProbeState>();
+  const remembered: ProbeState[] = [];
+  let next = 0;
   return {
     slots,
     base,
     groups,
     solves: () => count,
     at(kvar) {
-      const key = keyOf(kvar);
-      const known = remembered.get(key);
+      const known = remembered.find((s) => sameOutputs(s.kvar, kvar));
       if (known) return known;
       count++;
       const state = solveTrial(kvar);
-      if (remembered.size >= REMEMBERED_STATES) remembered.delete(remembered.keys().next().value!);
-      remembered.set(key, state);
+      remembered[next] = state;
+      next = (next + 1) % REMEMBERED_STATES;
       return state;
     },
   };
+}
+
+/** The same outputs to the bit (−0 apart from 0). */
+function sameOutputs(a: readonly number[], b: readonly number[]): boolean {
+  if (a.length !== b.length) return false;
+  for (let i = 0; i < a.length; i++) if (!Object.is(a[i], b[i])) return false;
+  return true;
 }
 
 /** A network compiled for trials: the first added branch is circuit branch `first`. */
 interface CompiledTrial {
   readonly c: CompiledBoard;
   readonly first: number;
+  /** Board `b` of the compiled installation, as its solution names it (its layout and supply are what the line readings take), and its noise floor. */
+  readonly boardAt: (b: number) => { readonly board: Board; readonly floor: (largestCurrent: number) => number };
 }
-
-/** Exact text of a vector of outputs (−0 kept apart from 0). */
-const keyOf = (kvar: readonly number[]): string => kvar.map((q) => (Object.is(q, -0) ? '-0' : String(q))).join(' ');
 
 /**
  * Solves the base board with trial equipment, compiling once per sizing loop instead of once
@@ -118,7 +127,16 @@ function trialSolver(
     const c = compileBoard(addCorrectionEquipment(base, groups(kvar)));
     let first = c.installation.layout.branchOffset[c.boardIndex]!;
     for (let l = 0; l < base.loads.length; l++) first += base.loads[l]!.branches.length;
-    return { c, first };
+    const boards = new Map<number, { board: Board; floor: (largestCurrent: number) => number }>();
+    const boardAt = (b: number) => {
+      let known = boards.get(b);
+      if (!known) {
+        const board = boardOfInstallation(c.installation.installation, b);
+        boards.set(b, (known = { board, floor: noiseFloorFor(board) }));
+      }
+      return known;
+    };
+    return { c, first, boardAt };
   };
   // A compiled network depends on the branch values only through which nodes are live (reach the
   // source). A branch between two nodes live without it changes none, so one network, compiled with
@@ -165,27 +183,47 @@ function trialSolver(
       entry.c.network.powerIm[entry.first + j] = power[j]!;
     }
     const { c } = entry;
+    const { installation, layout } = c.installation;
     const net = c.network;
     net.solve(opts);
-    // What solveCompiledInstallation reads, taken now: the network is re-used by the next trial.
+    // The solved state, kept: the network is re-used by the next trial.
     const nodeVoltages = Array.from({ length: net.nodeCount }, (_, v): ComplexValue | null => (net.live[v] ? { re: net.voltageRe[v]!, im: net.voltageIm[v]! } : null));
-    const admittances = Array.from({ length: net.branchCount }, (_, k): ComplexValue => ({ re: net.admittanceRe[k]!, im: net.admittanceIm[k]! }));
-    const sourceCurrents = net.sourceCurrents();
-    const boards = readInstallationSolution(c.installation.installation, c.installation.layout, {
-      nodeVoltages,
-      admittances,
-      sourceCurrents,
-      iterations: net.iterations,
-      lastChange: net.lastChange,
-      lowVoltageThreshold: opts.lowVoltageThreshold,
-    }).boards;
-    // The compiled board stands in for the equipped one where only the layout is read (line powers, sequences).
-    const atBank = boards[c.boardIndex]!;
-    const metering = meter ? boards[meter.meterIndex]! : null;
+    const solved: SolvedArrays = {
+      live: net.live,
+      voltageRe: net.voltageRe.slice(),
+      voltageIm: net.voltageIm.slice(),
+      admittanceRe: net.admittanceRe.slice(),
+      admittanceIm: net.admittanceIm.slice(),
+      sourceCurrents: net.sourceCurrents(),
+    };
+    const { iterations, lastChange } = net;
+    // Every board's whole solution, only when an analysis is asked for.
+    let boards: readonly NetworkSolution[] | undefined;
+    const solvedBoards = () =>
+      (boards ??= readInstallationSolution(installation, layout, {
+        nodeVoltages,
+        admittances: Array.from({ length: solved.admittanceRe.length }, (_, k): ComplexValue => ({ re: solved.admittanceRe[k]!, im: solved.admittanceIm[k]! })),
+        sourceCurrents: solved.sourceCurrents,
+        iterations,
+        lastChange,
+        lowVoltageThreshold: opts.lowVoltageThreshold,
+      }).boards);
+    // A board's line currents and noise floor read straight off the solved state (the same numbers its solution gives).
+    const linesAt = (b: number) => {
+      const currents = readBoardCurrents(installation, layout, solved, b);
+      let largest = currents.largestBranchCurrent;
+      for (const i of currents.lineCurrents) largest = Math.max(largest, abs(i));
+      if (currents.neutralCurrent) largest = Math.max(largest, abs(currents.neutralCurrent));
+      const atBoard = entry.boardAt(b);
+      return { lines: { board: atBoard.board, topology: layout.topologies[b]!, nodeVoltages, lineCurrents: currents.lineCurrents }, floor: atBoard.floor(largest) };
+    };
+    const meterIndex = meter ? meter.meterIndex : c.boardIndex;
+    const read = linesAt(meterIndex);
+    let bankLines: typeof read | undefined;
     let solution: NetworkSolution | undefined;
-    const bankSolution = () => (solution ??= { ...atBank, board: board() });
+    const bankSolution = () => (solution ??= { ...solvedBoards()[c.boardIndex]!, board: board() });
     // Most trial solves are read for line powers (or the bank board's sequence currents) only: the whole analysis waits until asked for.
-    const lines = readLinePowers(metering ?? atBank);
+    const lines = linePowersAbove(read.lines, read.floor);
     let result: BoardResult | undefined;
     let metered: BoardResult | undefined;
     let sequences: SequenceReading | null | undefined;
@@ -199,10 +237,14 @@ function trialSolver(
         return bankResult();
       },
       get metered() {
-        return metering ? (metered ??= analyseSolution(metering)) : bankResult();
+        return meter ? (metered ??= analyseSolution(solvedBoards()[meterIndex]!)) : bankResult();
       },
       get sequences() {
-        return sequences === undefined ? (sequences = readSequenceCurrents(atBank)) : sequences;
+        if (sequences === undefined) {
+          const bank = meterIndex === c.boardIndex ? read : (bankLines ??= linesAt(c.boardIndex));
+          sequences = sequenceCurrentsAbove(bank.lines, bank.floor);
+        }
+        return sequences;
       },
       lineP: lines.map((p) => p.kW),
       lineQ: lines.map((p) => p.kvar),
