@@ -86,7 +86,8 @@ describe('quadratic programme: dual active-set front', () => {
     const h = Float64Array.from([2, 0, 0, 2]);
     const rows = Float64Array.from([1, 0, 0, 1, -1, -1]);
     const bounds = Float64Array.from([1, 1, -1]);
-    const outcome = solveByDualActiveSet(h, Float64Array.from([0, 0]), rows, bounds, [1, 1, Math.SQRT2], 2, 3);
+    // With H = 2·I, rowᵢ·H⁻¹·rowᵢᵀ = ‖rowᵢ‖²/2.
+    const outcome = solveByDualActiveSet(h, Float64Array.from([0, 0]), rows, bounds, [1, 1, Math.SQRT2], Float64Array.from([0.5, 0.5, 1]), 2, 3);
     expect(outcome?.kind).toBe('infeasible');
     const u = outcome!.kind === 'infeasible' ? outcome!.certificate : new Float64Array(3);
     expect(u.every((v) => v >= 0)).toBe(true);
@@ -103,7 +104,7 @@ describe('quadratic programme: dual active-set front', () => {
     const h = Float64Array.from([2, 0, 0, 2]);
     const c = Float64Array.from([-2, -5]);
     const rowList = [[1, -2], [-1, -2], [-1, 2], [1, 0], [0, 1]];
-    const outcome = solveByDualActiveSet(h, c, Float64Array.from(rowList.flat()), Float64Array.from([-2, -6, -2, 0, 0]), rowList.map((r) => Math.hypot(...r)), 2, 5);
+    const outcome = solveByDualActiveSet(h, c, Float64Array.from(rowList.flat()), Float64Array.from([-2, -6, -2, 0, 0]), rowList.map((r) => Math.hypot(...r)), Float64Array.from(rowList.map((r) => (r[0]! ** 2 + r[1]! ** 2) / 2)), 2, 5);
     expect(outcome?.kind).toBe('optimal');
     if (outcome?.kind !== 'optimal') return;
     expect(outcome.x[0]).toBeCloseTo(1.4, 12);

@@ -285,10 +285,23 @@ export function searchSet(
     let counts = countsOf.get(choice);
     if (counts) return counts;
     const near = countsNear(edges, choice.elementF);
-    // Multiples of the step counts wanted, so equal steps are within reach; and the
+    // Then multiples of the step counts wanted, so equal steps are within reach; and the
     // largest build within the unit cap is always a candidate (never dropped for being over it).
-    const multiples = near.flatMap((c) => [2, 3, 4].flatMap((m) => [Math.floor(c / m) * m, Math.ceil(c / m) * m]));
-    counts = [...new Set([...near, ...multiples, 1].map((c) => Math.min(c, rules.maxUnitsPerBranch)))].filter((c) => c >= 1);
+    // Each count once, capped, in first-seen order (a Set keeps it), without the arrays a
+    // flatMap of flatMaps builds for every choice of every search.
+    const seen = new Set<number>();
+    const put = (c: number) => {
+      const capped = Math.min(c, rules.maxUnitsPerBranch);
+      if (capped >= 1) seen.add(capped);
+    };
+    for (let i = 0; i < near.length; i++) put(near[i]!);
+    for (let i = 0; i < near.length; i++)
+      for (let m = 2; m <= 4; m++) {
+        put(Math.floor(near[i]! / m) * m);
+        put(Math.ceil(near[i]! / m) * m);
+      }
+    put(1);
+    counts = Array.from(seen);
     countsOf.set(choice, counts);
     return counts;
   };

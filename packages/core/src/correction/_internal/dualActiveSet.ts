@@ -29,8 +29,9 @@ const DEPENDENT = 1e-10;
  * @param h row-major n×n, symmetric positive definite
  * @param rows row-major m×n
  * @param norms each row's Euclidean norm (1 for a row without coefficients)
+ * @param rowSpread rowᵢ·H⁻¹·rowᵢᵀ for every row: the largest its step n·z can be (with no row active)
  */
-export function solveByDualActiveSet(h: Float64Array, c: Float64Array, rows: Float64Array, bounds: Float64Array, norms: readonly number[], n: number, m: number): DualOutcome | null {
+export function solveByDualActiveSet(h: Float64Array, c: Float64Array, rows: Float64Array, bounds: Float64Array, norms: readonly number[], rowSpread: Float64Array, n: number, m: number): DualOutcome | null {
   const most = Math.min(n, m);
   const largest = n + most;
   const kkt = new Float64Array(largest * (largest + 1));
@@ -64,14 +65,6 @@ export function solveByDualActiveSet(h: Float64Array, c: Float64Array, rows: Flo
   };
   const zero = () => 0;
 
-  // n·H⁻¹·n for every row: the largest its step n·z can be (with no row active).
-  const reach = new Float64Array(m);
-  for (let i = 0; i < m; i++) {
-    if (!solveKkt((j) => rows[i * n + j]!, zero)) return null;
-    let s = 0;
-    for (let j = 0; j < n; j++) s += rows[i * n + j]! * sol[j]!;
-    reach[i] = s;
-  }
   if (!solveKkt((j) => -c[j]!, zero)) return null;
   for (let j = 0; j < n; j++) x[j] = sol[j]!;
 
@@ -120,7 +113,7 @@ export function solveByDualActiveSet(h: Float64Array, c: Float64Array, rows: Flo
           }
         }
       }
-      const dependent = !(npz > DEPENDENT * reach[p]!);
+      const dependent = !(npz > DEPENDENT * rowSpread[p]!);
       if (dependent && block < 0) {
         // n_p + Σ ρₐ·nₐ = 0 with every ρₐ ≥ 0, while p is violated where the active rows hold.
         const certificate = new Float64Array(m);

@@ -8,6 +8,10 @@
  * hundred 4×4 solves. Objectives are lexicographic: the first is minimised, the
  * next breaks ties among vertices equal in the first, and so on — the optimum
  * of a lexicographic LP over a pointed polyhedron is always a vertex.
+ *
+ * Tie rule: choices of active rows are taken in lexicographic order and a vertex replaces the
+ * best so far only when it is better by more than TIE in the first objective that differs, so
+ * of vertices equal within TIE the one met first stays.
  */
 import { dot, nextSubset, solveLinearInPlace } from './realMatrix.js';
 
@@ -75,6 +79,7 @@ export function solveLinearProgram(lp: LinearProgram): number[] | null {
   const rowOf = new Int32Array(d);
   const solution = new Float64Array(d);
   const active = new Int32Array(d);
+  let lastMissed = 0;
   for (let i = 0; i < d; i++) active[i] = i;
   for (let more = true; more; more = nextSubset(active, d, m)) {
     for (let r = 0; r < d; r++) {
@@ -86,11 +91,16 @@ export function solveLinearProgram(lp: LinearProgram): number[] | null {
     let zScale = scale;
     for (let c = 0; c < d; c++) zScale = Math.max(zScale, Math.abs(solution[c]!));
     // Every row·z ≤ bound (within tolerance), each dot product summed left to right from 0 as `dot` sums it.
+    // The row that ruled out the last vertex is asked first: most vertices miss the same few rows,
+    // and the verdict (all rows hold) does not depend on the order they are asked in.
     let feasible = true;
-    for (let i = 0; i < m && feasible; i++) {
+    for (let k = m > 0 ? -1 : 0; k < m && feasible; k++) {
+      const i = k < 0 ? lastMissed : k;
+      if (k === lastMissed) continue;
       let s = 0;
       for (let c = 0; c < d; c++) s = s + flat[i * d + c]! * solution[c]!;
       feasible = s <= bounds[i]! + FEASIBILITY * zScale;
+      if (!feasible) lastMissed = i;
     }
     if (!feasible) continue;
     const z = Array.from(solution);

@@ -166,11 +166,24 @@ export type QuadraticRoute = 'near-optimum' | 'proven-infeasible' | 'enumerated'
 export function solveQuadraticProgramBy(qp: QuadraticProgram): { x: number[] | null; route: QuadraticRoute } {
   const p = typedProgramme(qp);
   const judge = new ActiveSetJudge(p);
-  if (p.m > 0 && p.n > 0) {
-    const dual = solveByDualActiveSet(p.h, p.c, p.rows, p.bounds, p.norms, p.n, p.m);
+  const inverse = p.m > 0 && p.n > 0 ? invertPositiveDefinite(p.h, p.n) : null;
+  if (inverse) {
+    // rowᵢ·H⁻¹·rowᵢᵀ: how far each row can move the optimum (the dual method's scale, and the reach bound's).
+    const { n, m, rows } = p;
+    const rowSpread = new Float64Array(m);
+    for (let i = 0; i < m; i++) {
+      let g = 0;
+      for (let j = 0; j < n; j++) {
+        let s = 0;
+        for (let k = 0; k < n; k++) s += inverse[j * n + k]! * rows[i * n + k]!;
+        g += rows[i * n + j]! * s;
+      }
+      rowSpread[i] = g;
+    }
+    const dual = solveByDualActiveSet(p.h, p.c, p.rows, p.bounds, p.norms, rowSpread, p.n, p.m);
     if (dual?.kind === 'infeasible' && isFarFromFeasible(p, judge, dual.certificate)) return { x: null, route: 'proven-infeasible' };
     if (dual?.kind === 'optimal') {
-      const found = judgeSetsNearOptimum(p, judge, dual.x, dual.multipliers);
+      const found = judgeSetsNearOptimum(p, judge, inverse, rowSpread, dual.x, dual.multipliers);
       if (found !== undefined) return { x: found, route: 'near-optimum' };
     }
   }
@@ -198,10 +211,8 @@ const INFEASIBLE_REACH = 1e6;
  * value; the sets of the near constraints are judged in the enumeration's order, so the first of
  * least value among them is that set.
  */
-function judgeSetsNearOptimum(p: TypedProgramme, judge: ActiveSetJudge, xDual: Float64Array, mu: Float64Array): number[] | null | undefined {
+function judgeSetsNearOptimum(p: TypedProgramme, judge: ActiveSetJudge, inverse: Float64Array, rowSpread: Float64Array, xDual: Float64Array, mu: Float64Array): number[] | null | undefined {
   const { n, m, h, c, rows, bounds, norms } = p;
-  const inverse = invertPositiveDefinite(h, n);
-  if (!inverse) return undefined;
   const quadratic = (x: Float64Array) => {
     let xhx = 0;
     for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) xhx += x[i]! * h[i * n + j]! * x[j]!;
@@ -244,6 +255,8 @@ function judgeSetsNearOptimum(p: TypedProgramme, judge: ActiveSetJudge, xDual: F
   size += Math.abs(fDual) + Math.abs(quadratic(xDual)) + Math.abs(linear(xDual));
   const upper = Math.max(fDual, q) + BOUND_PADDING * size;
   const budget = upper - q + BOUND_PADDING * size;
+  // A guide that overflowed or lost its digits bounds nothing (every set is then enumerated).
+  if (!Number.isFinite(upper) || !Number.isFinite(budget)) return undefined;
   // The winner's xScale X: |xⱼ| ≤ |x̂ⱼ| + √(2·(budget + t·X)·H⁻¹ⱼⱼ), t·X the tolerance term; X at most the larger root.
   const t = 2 * TOLERANCE * muNorms;
   let reach = 1;
@@ -255,12 +268,7 @@ function judgeSetsNearOptimum(p: TypedProgramme, judge: ActiveSetJudge, xDual: F
   const radius2 = 2 * (budget + t * reach * (1 + BOUND_PADDING));
   const near: number[] = [];
   for (let i = 0; i < m; i++) {
-    let g = 0;
-    for (let j = 0; j < n; j++) {
-      let s = 0;
-      for (let k = 0; k < n; k++) s += inverse[j * n + k]! * rows[i * n + k]!;
-      g += rows[i * n + j]! * s;
-    }
+    const g = rowSpread[i]!;
     const distance = Math.abs(rowAt(i, xHat) - bounds[i]!);
     if (distance <= Math.sqrt(radius2 * Math.max(0, g)) * (1 + BOUND_PADDING) + BOUND_PADDING * (norms[i]! * reach + Math.abs(bounds[i]!))) near.push(i);
   }
