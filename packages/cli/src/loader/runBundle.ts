@@ -1,5 +1,5 @@
 /**
- * dist/trivar.js: runs the CLI bundle (dist/trivar-bundle.js) through vm.Script with V8's code cache
+ * dist/trivar.js (CommonJS): runs the CLI bundle (dist/trivar-bundle.js) through vm.Script with V8's code cache
  * (codeCache.ts). Why not plain ESM chunks: Node 20 has no compile cache for ES modules
  * (module.enableCompileCache is Node 22), and resolving, reading, compiling and linking some 60 chunks
  * was a third of `trivar correct`'s start-up. The bundle is one function expression (build.mjs wraps
@@ -12,7 +12,7 @@
 import { readFileSync, statSync } from 'node:fs';
 import { createRequire } from 'node:module';
 import { dirname, join } from 'node:path';
-import { fileURLToPath, pathToFileURL } from 'node:url';
+import { pathToFileURL } from 'node:url';
 import { Script } from 'node:vm';
 import { cacheCommand, cacheDirectory, cacheFileName, readCache, writeCache } from './codeCache.js';
 
@@ -22,7 +22,8 @@ declare const TRIVAR_BUNDLE_HASH: string;
 /** What the bundle is called with: CommonJS's module parameters and its own URL (the parameters build.mjs's wrapper declares). */
 type BundleFunction = (exports: object, require: NodeJS.Require, module: { exports: object }, filename: string, dirname: string, bundleUrl: string) => void;
 
-const bundlePath = join(dirname(fileURLToPath(import.meta.url)), 'trivar-bundle.js');
+// Built as CommonJS (build.mjs): __dirname is dist/.
+const bundlePath = join(__dirname, 'trivar-bundle.js');
 const bytes = readFileSync(bundlePath);
 const command = cacheCommand(process.argv.slice(2));
 const dir = cacheDirectory();
