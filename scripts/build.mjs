@@ -2,18 +2,19 @@
 // esbuild bundles only the mathjs factories core imports, which keeps CLI start-up short.
 import { build } from 'esbuild';
 import { execFileSync } from 'node:child_process';
-import { chmodSync, readFileSync, rmSync } from 'node:fs';
+import { createHash } from 'node:crypto';
+import { chmodSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { resolve } from 'node:path';
 
 const requireShim = "import{createRequire as __trivarRequire}from'node:module';const require=__trivarRequire(import.meta.url);";
 
 /**
  * Rewrites `import { a, b } from '@trivar/core'` (and `export { … } from`) in the CLI's sources to imports from the core
- * modules that define a and b (read off core's index.ts, which only re-exports). With code
- * splitting esbuild places a module in every chunk whose entry reaches it through the import
- * graph, whichever exports are used: through the index, every command reached all of core and
- * `trivar solve` loaded the correction, harmonic, profile and drawing code. (Bundlers call this
- * barrel-file optimisation.) A name the index does not export stops the build.
+ * modules that define a and b (read off core's index.ts, which only re-exports). A module that
+ * imports the index initialises every module the index reaches, whichever exports it uses: through
+ * it, every command's start-up (main.ts → exitCodes.ts) initialised all of core, zod's schemas
+ * included. (Bundlers call this barrel-file optimisation.) A name the index does not export stops
+ * the build.
  */
 function coreImportsByModule() {
   const index = resolve('packages/core/src/index.ts');
@@ -45,35 +46,61 @@ function coreImportsByModule() {
   };
 }
 
-// ESM with code splitting: each command (imported on demand in program.ts) is its own chunk beside
-// trivar.js, so start-up parses only what the command runs. Old chunks are cleared first.
+// The CLI is one bundle, dist/trivar-bundle.js, run by a small loader, dist/trivar.js (src/loader/), through
+// vm.Script with V8's code cache. Node 20 caches no compiled code for ES modules, and as ~60 ESM chunks
+// the CLI spent a third of `trivar correct`'s start-up resolving, reading, compiling and linking them.
+// The bundle is CommonJS-style code (format cjs) wrapped in one function expression:
+//   (function (exports, require, module, __filename, __dirname, __trivarBundleUrl) {"use strict"; ... })
+// "use strict" keeps the semantics of the ES modules it is made of; import.meta.url becomes the
+// bundle's URL (the profile worker is found beside it). Each command's code still evaluates only when
+// that command runs: esbuild turns program.ts's `await import()` of a bundled module into a call of
+// that module's lazy initialiser, so `trivar solve` never builds the correction, harmonic or schema code.
 rmSync('packages/cli/dist', { recursive: true, force: true });
-/** What every CLI bundle shares: one minified ESM file set for Node 20, with `require` available. */
-const cliBundle = {
+/** What every CLI bundle shares: minified, for Node 20, no comments kept. */
+const nodeBundle = {
   bundle: true,
   platform: 'node',
   target: 'node20',
-  format: 'esm',
   minify: true,
   legalComments: 'none',
-  banner: { js: requireShim },
   logLevel: 'warning',
 };
-await build({
-  ...cliBundle,
-  entryPoints: { trivar: 'packages/cli/src/main.ts' },
-  outdir: 'packages/cli/dist',
-  splitting: true,
-  chunkNames: '[name]-[hash]',
+const cli = await build({
+  ...nodeBundle,
+  entryPoints: ['packages/cli/src/main.ts'],
+  outfile: 'packages/cli/dist/trivar-bundle.js',
+  format: 'cjs',
+  define: { 'import.meta.url': '__trivarBundleUrl' },
+  banner: { js: '(function (exports, require, module, __filename, __dirname, __trivarBundleUrl) {"use strict";' },
+  footer: { js: '\n})' },
+  metafile: true,
   plugins: [coreImportsByModule()],
+});
+// vm.Script gets no module loader: an import() left in the bundle (of a file outside it) could not run.
+for (const [file, output] of Object.entries(cli.metafile.outputs))
+  for (const left of output.imports.filter((i) => i.kind === 'dynamic-import'))
+    throw new Error(`build: ${file} keeps import("${left.path}"); import only files the bundle can hold`);
+// The loader names its code cache after the bundle's hash (loader/codeCache.ts).
+const bundleHash = createHash('sha256').update(readFileSync('packages/cli/dist/trivar-bundle.js')).digest('hex');
+// CommonJS, like bin/trivar.js that requires it (dist/package.json, bin/package.json): an ES module entry
+// starts Node's ES module loader, about 5 ms of every run (a tenth of `trivar --version`).
+writeFileSync('packages/cli/dist/package.json', `${JSON.stringify({ type: 'commonjs' })}\n`);
+await build({
+  ...nodeBundle,
+  entryPoints: ['packages/cli/src/loader/runBundle.ts'],
+  outfile: 'packages/cli/dist/trivar.js',
+  format: 'cjs',
+  define: { TRIVAR_BUNDLE_HASH: JSON.stringify(bundleHash) },
 });
 chmodSync('packages/cli/bin/trivar.js', 0o755);
 
 // Worker thread of `trivar profile` (reads half of a large interval-data file), beside the CLI bundle.
 await build({
-  ...cliBundle,
+  ...nodeBundle,
+  format: 'esm',
+  banner: { js: requireShim },
   entryPoints: ['packages/cli/src/profileWorker.ts'],
-  outfile: 'packages/cli/dist/profile-worker.js',
+  outfile: 'packages/cli/dist/profile-worker.mjs',
 });
 
 await build({

@@ -1,2 +1,3 @@
 #!/usr/bin/env node
-import '../dist/trivar.js';
+// CommonJS (bin/package.json): see dist/trivar.js, built from src/loader/runBundle.ts.
+require('../dist/trivar.js');

@@ -2,4 +2,7 @@ import { guardOutputStreams, processIo } from './io.js';
 import { runCli } from './program.js';
 
 guardOutputStreams();
-process.exitCode = await runCli(process.argv.slice(2), processIo);
+// No top-level await: the bundle is a CommonJS-style script (see loader/runBundle.ts).
+void runCli(process.argv.slice(2), processIo).then((code) => {
+  process.exitCode = code;
+});

@@ -1,5 +1,5 @@
 /** `trivar correct`: size, choose and verify power-factor correction for a board. */
-import { boardOfInstallation, meteringPointIssues, boardHasHarmonicData, compareCorrections, compareInstallationCorrections, correctBoard, correctInstallation, InputError, installationBoardIndex, isInstallationInput, normaliseBoard, normaliseInstallation, readPlainBoardText, readWellFormedBoard, type CorrectionComparison, type CorrectionReport } from '@trivar/core';
+import { boardOfInstallation, meteringPointIssues, boardHasHarmonicData, compareCorrections, compareInstallationCorrections, correctBoard, correctInstallation, InputError, installationBoardIndex, isInstallationInput, normaliseBoard, normaliseInstallation, readPlainBoardText, readWellFormedBoard, readWellFormedCorrectionBoard, type CorrectionComparison, type CorrectionReport } from '@trivar/core';
 import type { CliIo } from '../io.js';
 import { writeResult } from '../writeResult.js';
 import { renderCorrectionReport } from '../format/correctionReport.js';
@@ -106,8 +106,9 @@ export async function runCorrect(file: string, options: CorrectCommandOptions, i
       [{ code: 'not_applicable', path: '', expected: 'an installation file (with boards:) for --board', message: '--board applies to installation files (with boards:), and this is a single board' }],
       'the options do not fit the file',
     );
-  // A well-formed board is read without the board-file schemas (zod and every study's section), as solve reads it.
-  const spec = readWellFormedBoard(input) ?? (await import('./schemaChecks.js')).parseBoard(input);
+  // A well-formed board is read without the board-file schemas (zod and every study's section), as solve reads it;
+  // one with a correction section and no other study with only that section's schema, which the study needs anyway.
+  const spec = readWellFormedBoard(input) ?? readWellFormedCorrectionBoard(input) ?? (await import('./schemaChecks.js')).parseBoard(input);
   const study = studySpec(spec.correction as Record<string, unknown> | undefined, options);
   if (options.measuredAt !== undefined) {
     const issues = meteringPointIssues(normaliseBoard(spec), options.measuredAt, '--measured-at');

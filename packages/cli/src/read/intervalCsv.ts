@@ -119,7 +119,7 @@ function runWorker(workerFile: string, range: CsvRange, plan: ColumnPlan, option
 /** The worker script beside the bundled CLI, when there is one (not when running from source). */
 function workerScript(): string | null {
   try {
-    const file = fileURLToPath(new URL('./profile-worker.js', import.meta.url));
+    const file = fileURLToPath(new URL('./profile-worker.mjs', import.meta.url));
     return existsSync(file) ? file : null;
   } catch {
     return null;

@@ -7,12 +7,11 @@
 import * as z from 'zod';
 import { boardSchemaWith } from '../board/boardSchema.js';
 import { installationSchemaWith } from '../board/installationSchema.js';
-import { correctionSpecSchema } from '../correction/correctionSpec.js';
 import { harmonicLoadFields, harmonicsSectionSchema, installationHarmonicsSectionSchema } from '../harmonics/harmonicsSpec.js';
 import { profileSpecSchema } from '../profile/profileSpec.js';
 import { rebalanceSpecSchema } from '../rebalance/rebalanceSpec.js';
+import { correctionSection } from './correctionSection.js';
 
-const correctionSection = correctionSpecSchema.partial();
 const CORRECTION_WORDS = 'a power-factor correction study for `trivar correct` (command-line options override it)';
 
 export const boardSchema = boardSchemaWith({
