@@ -33,12 +33,14 @@ const executablePath = findChromium();
 const mustRun = process.env.CI === 'true';
 const ARTIFACTS = join(ROOT, 'test/browser/artifacts');
 const PROFILE_REPORT = 'quay-street-flats-with-profile';
-/** Every example (boards and installations, and any added later), plus one report with a profile section. */
+const INSTALLATION_PROFILE_REPORT = 'osier-mill-studios-with-profile';
+/** Every example (boards and installations, and any added later), plus a board's and an installation's report with profile sections. */
 const examples = [
   ...readdirSync(join(ROOT, 'examples'))
     .filter((f) => f.endsWith('.yaml'))
     .map((f) => f.replace(/\.yaml$/, '')),
   PROFILE_REPORT,
+  INSTALLATION_PROFILE_REPORT,
 ];
 const installations = readdirSync(join(ROOT, 'examples'))
   .filter((f) => f.endsWith('.yaml') && !isBoardExample(join(ROOT, 'examples'))(f))
@@ -61,7 +63,7 @@ if (!executablePath && !mustRun) {
       expect(executablePath, 'CI=true but Chromium was not found').not.toBeNull();
       mkdirSync(ARTIFACTS, { recursive: true });
       for (const name of examples) {
-        if (name === PROFILE_REPORT) continue;
+        if (name === PROFILE_REPORT || name === INSTALLATION_PROFILE_REPORT) continue;
         const r = runTrivar(['report', `examples/${name}.yaml`, '-o', join(ARTIFACTS, `${name}.html`)]);
         if (r.code !== 0) throw new Error(`trivar report failed for ${name}: ${r.stderr}`);
       }
@@ -70,6 +72,9 @@ if (!executablePath && !mustRun) {
       execFileSync(process.execPath, [join(ROOT, 'scripts/generate-profile-example.mjs'), data, '--days', '7'], { cwd: ROOT });
       const p = runTrivar(['report', 'examples/quay-street-flats.yaml', '--profile-data', data, '-o', join(ARTIFACTS, `${PROFILE_REPORT}.html`)]);
       if (p.code !== 0) throw new Error(`trivar report with profile data failed: ${p.stderr}`);
+      // An installation's: an overview and a section per board (the invented mill's day of half-hours).
+      const q = runTrivar(['report', 'examples/osier-mill-studios.yaml', '--profile-data', 'examples/osier-mill-day.csv', '-o', join(ARTIFACTS, `${INSTALLATION_PROFILE_REPORT}.html`)]);
+      if (q.code !== 0) throw new Error(`trivar report of an installation with profile data failed: ${q.stderr}`);
       // Root (CI) cannot use Chromium's sandbox; the pages are trivar's own local files.
       browser = await chromium.launch({ executablePath: executablePath!, args: ['--no-sandbox', '--disable-gpu'] });
     }, 120_000);
@@ -112,7 +117,7 @@ if (!executablePath && !mustRun) {
       await page.close();
       expect(problems).toEqual([]);
       expect(figures.length).toBeGreaterThanOrEqual(1);
-      if (installations.includes(name)) expect(figures.filter((f) => f.view === 'one-line'), 'an installation report has its one-line drawing').toHaveLength(1);
+      if (installations.includes(name) || name === INSTALLATION_PROFILE_REPORT) expect(figures.filter((f) => f.view === 'one-line'), 'an installation report has its one-line drawing').toHaveLength(1);
       for (const f of figures) {
         expect(f.width, `${f.name} is drawn`).toBeGreaterThan(100);
         const currents = f.phasors.filter((p) => p.quantity === 'current');

@@ -4,7 +4,7 @@
  * from the pottery) with one day of half-hourly readings (examples/osier-mill-day.csv).
  * The peak interval's figures are checked against solveInstallation on the same loads.
  */
-import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
+import { mkdtempSync, readdirSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { beforeAll, describe, expect, it } from 'vitest';
@@ -153,13 +153,86 @@ describe('trivar profile on an installation', () => {
     expect(amb.stderr).toMatch(/column 4 \("Cafe \[kW\]"\)/);
   });
 
+  it('without --data runs profile.scenarios through every board, the text and JSON agreeing', () => {
+    const t = runTrivar(['profile', FILE]);
+    expect(t.stderr).toBe('');
+    expect(t.code).toBe(0);
+    const j = runTrivar(['profile', FILE, '--json']);
+    expect(j.code).toBe(0);
+    const r = JSON.parse(j.stdout) as { hours: number; boards: { board: string; fedFrom: string | null; scenarios: { name: string; hours: number; lineA: number[]; kW: number; pf: number }[]; billingPf: number }[] };
+    expect(t.stdout).toMatch(/^Osier Mill studios — scenarios \(8760 h\), every board$/m);
+    expect(r.boards.map((b) => b.board)).toEqual(['Mill intake', 'Pottery', 'Print room']);
+    // Each board's table: its rows are the JSON's figures as printed.
+    for (const b of r.boards) {
+      const block = t.stdout.split(`${b.board} — currents in the ${b.fedFrom === null ? 'supply to the main board' : `feeder from ${b.fedFrom}`}`)[1]!;
+      for (const s of b.scenarios) {
+        const row = new RegExp(`^  ${s.name} +${s.hours} +${s.lineA.map((a) => a.toFixed(1)).join(' +')} .* ${s.kW.toFixed(1)} .* ${s.pf.toFixed(3)}$`, 'm');
+        expect(block).toMatch(row);
+      }
+      expect(block).toContain(`billing power factor ${b.billingPf.toFixed(3)}`);
+    }
+    expect(t.stdout).toContain('every scenario within 95-105 % (the board\'s limits, custom)');
+    // The firing night: the large kiln on line A through the pottery's feeder.
+    expect(r.boards[1]!.scenarios[0]!.lineA[0]).toBeGreaterThan(35);
+  });
+
+  it('scenarios: a load no board has is named by its field; options for interval data are refused', () => {
+    const bad = join(dir, 'bad-scenario.yaml');
+    writeFileSync(bad, readFileSync(`${ROOT}${FILE}`, 'utf8').replace('loads: { Workshop lighting: 0.05 }', 'loads: { Workshop lamps: 0.05 }'));
+    const r = runTrivar(['profile', bad]);
+    expect(r.code).not.toBe(0);
+    expect(r.stderr).toContain('profile.scenarios[2].loads.Workshop lamps');
+    expect(r.stderr).not.toMatch(/at .*\.js:\d+/);
+    const charts = runTrivar(['profile', FILE, '--charts', join(dir, 'scenario-charts')]);
+    expect(charts.code).toBe(2);
+    expect(charts.stderr).toContain('--charts works on interval data');
+    const none = join(dir, 'no-scenarios.yaml');
+    writeFileSync(none, readFileSync(`${ROOT}${FILE}`, 'utf8').split('  # Without --data')[0]!);
+    const noData = runTrivar(['profile', none]);
+    expect(noData.code).toBe(2);
+    expect(noData.stderr).toContain('give the interval data with --data <file.csv>, or scenarios under profile.scenarios');
+  });
+
   it('names the option that does not fit', () => {
     const r = runTrivar(['profile', FILE, '--data', DATA, '--bank', '--board', 'Kiln shed']);
     expect(r.code).not.toBe(0);
     expect(r.stderr).toContain('--board');
     expect(r.stderr).toContain('"Pottery"');
-    const csv = runTrivar(['profile', FILE, '--data', DATA, '--charts', join(dir, 'charts')]);
-    expect(csv.code).not.toBe(0);
-    expect(csv.stderr).toContain('--charts is not available for installation files yet');
+  });
+
+  it('--charts writes three charts per board and the feeder loading, their legends carrying the JSON figures', () => {
+    const out = join(dir, 'charts');
+    const r = runTrivar(['profile', FILE, '--data', DATA, '--bank', '--board', 'Pottery', '--charts', out, '--json']);
+    expect(r.stderr).toBe('');
+    expect(r.code).toBe(0);
+    const result = JSON.parse(r.stdout) as {
+      boards: { board: string; before: { conductors: { conductor: string; maxA: number; ratingA: number | null }[]; energy: { billingPf: number } }; after: { energy: { billingPf: number } } }[];
+    };
+    expect(readdirSync(out).sort()).toEqual(['feeder-loading.svg', 'mill-intake', 'pottery', 'print-room']);
+    const legends = (svg: string) => [...svg.matchAll(/<text x="[\d.]+" y="[\d.]+">([^<]*\(peak [^<]*|[^<]*billing PF [^<]*)<\/text>/g)].map((m) => m[1]!);
+    const peakOf = (legend: string) => Number(/peak ([\d.]+)/.exec(legend)![1]);
+    for (const [folder, b] of [['mill-intake', 0], ['pottery', 1], ['print-room', 2]] as const) {
+      const board = result.boards[b]!;
+      expect(readdirSync(join(out, folder)).sort()).toEqual(['currents.svg', 'load-duration.svg', 'power-factor.svg']);
+      const currents = readFileSync(join(out, folder, 'currents.svg'), 'utf8');
+      expect(currents).toMatch(/^<svg [^>]*>[\s\S]*<\/svg>\n$/);
+      expect(currents).toContain(`<text x="58" y="20" font-size="13" font-weight="bold">${board.board}: line and neutral current`);
+      // One legend per conductor, in the JSON's order, each peak the JSON's to the 0.1 A printed.
+      const peaks = legends(currents);
+      expect(peaks.map((l) => l.split(' (')[0])).toEqual(board.before.conductors.map((c) => (c.conductor === 'N' ? 'neutral' : `line ${c.conductor}`)));
+      peaks.forEach((l, k) => expect(Math.abs(peakOf(l) - board.before.conductors[k]!.maxA)).toBeLessThanOrEqual(0.05));
+      expect(legends(readFileSync(join(out, folder, 'load-duration.svg'), 'utf8'))).toEqual(peaks);
+      const pf = legends(readFileSync(join(out, folder, 'power-factor.svg'), 'utf8'));
+      expect(pf).toEqual([`before (billing PF ${board.before.energy.billingPf.toFixed(3)})`, `with bank (billing PF ${board.after.energy.billingPf.toFixed(3)})`]);
+    }
+    // The feeder loading: each board's busiest incomer line against its rating (200, 68 and 36 A in the file).
+    const loading = legends(readFileSync(join(out, 'feeder-loading.svg'), 'utf8'));
+    expect(loading.map((l) => l.replace(/ \(.*/, ''))).toEqual(['Mill intake', 'Pottery', 'Print room']);
+    loading.forEach((l, b) => {
+      const lines = result.boards[b]!.before.conductors.filter((c) => c.conductor !== 'N');
+      const rating = lines[0]!.ratingA!;
+      expect(l).toContain(`% of ${rating} A)`);
+      expect(Math.abs(peakOf(l) - (100 * Math.max(...lines.map((c) => c.maxA))) / rating)).toBeLessThanOrEqual(0.05);
+    });
   });
 });

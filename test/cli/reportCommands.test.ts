@@ -191,6 +191,41 @@ describe('trivar report', () => {
     expect(runTrivar(['report', 'examples/quay-street-flats.yaml', '--profile-data', data, '-o', data]).code).toBe(2);
   });
 
+  it('--profile-data on an installation: an overview and a section per board, every figure the profile JSON\'s', () => {
+    const dir = scratch();
+    const FILE = 'examples/osier-mill-studios.yaml';
+    const DATA = 'examples/osier-mill-day.csv';
+    const r = runTrivar(['report', FILE, '--profile-data', DATA, '-o', join(dir, 'mill.html')]);
+    expect(r.stderr).toBe('');
+    expect(r.code).toBe(0);
+    const html = readFileSync(join(dir, 'mill.html'), 'utf8');
+    const profile = JSON.parse(runTrivar(['profile', FILE, '--data', DATA, '--json']).stdout) as {
+      boards: { board: string; fedFrom: string | null; before: { conductors: { conductor: string; maxA: number; maxAt: string }[]; energy: { billingPf: number; kWhImport: number } } }[];
+    };
+    const sectionOf = (id: string) => html.split(`<section id="${id}">`)[1]!.split('</section>')[0]!;
+    const overview = sectionOf('profile');
+    expect(overview).toContain('data-figure="profile-feeder-loading"');
+    for (const [b, id] of [[0, 'board-mill-intake'], [1, 'board-pottery'], [2, 'board-print-room']] as const) {
+      const board = profile.boards[b]!;
+      const lines = board.before.conductors.filter((c) => c.conductor !== 'N');
+      // The overview's row: the board, what feeds it, its busiest incomer line as the JSON has it.
+      expect(overview).toContain(`<tr><td>${board.board}</td><td>${board.fedFrom ?? 'supply'}</td><td class="num">${Math.max(...lines.map((c) => c.maxA)).toFixed(1)}</td>`);
+      const section = sectionOf(`profile-${id}`);
+      expect(section).toContain(`<h2>Load over time — ${board.board}</h2>`);
+      for (const c of board.before.conductors) expect(section).toContain(`<tr><td>${c.conductor}</td><td class="num">${c.maxA.toFixed(1)}</td><td>${c.maxAt}</td>`);
+      expect(section).toContain(`<dt>Billing power factor</dt><dd>${board.before.energy.billingPf.toFixed(3)}</dd>`);
+      expect(section).toContain(`<dt>Energy imported / exported</dt><dd>${board.before.energy.kWhImport.toFixed(0)} kWh`);
+      for (const chart of ['currents', 'power-factor', 'load-duration']) expect(section).toContain(`data-figure="profile-${id}-${chart}"`);
+    }
+    // The pottery judged against its own ±5 %.
+    expect(sectionOf('profile-board-pottery')).toContain('Hours below 95 % / above 105 %');
+    // Markdown: every chart a file beside the report, named by its board.
+    const md = runTrivar(['report', FILE, '--profile-data', DATA, '--format', 'md', '-o', join(dir, 'mill.md')]);
+    expect(md.code).toBe(0);
+    const files = readdirSync(dir);
+    for (const name of ['mill-profile-feeder-loading.svg', 'mill-profile-board-pottery-currents.svg', 'mill-profile-board-print-room-load-duration.svg']) expect(files).toContain(name);
+  });
+
   it('--format md writes the Markdown and its SVG figures beside it', () => {
     const dir = scratch();
     const r = runTrivar(['report', 'examples/riverside-cold-store.yaml', '--format', 'md', '-o', join(dir, 'store.md')]);

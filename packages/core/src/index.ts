@@ -44,7 +44,7 @@ export { validateInstallation, parseInstallation } from './boardFile/validateIns
 export { isInstallationInput } from './board/installationInput.js';
 export { normaliseInstallation } from './board/normaliseInstallation.js';
 export type { FeederSpec, PerPhaseConductorSpec, WindingSpec } from './board/boardSchema.js';
-export type { ConductorMaterial, ConductorSize, ConductorResistance } from './board/cableLibrary.js';
+export type { ConductorMaterial, ConductorSize, ConductorResistance, ConductorReactance, ConduitKind } from './board/cableLibrary.js';
 export { conductorReactance, conductorResistance, DEFAULT_CABLE_REACTANCE_OHM_PER_KM, DEFAULT_CONDUCTOR_TEMPERATURE_C } from './board/cableLibrary.js';
 export { installationOf, boardOfInstallation } from './network/installationModel.js';
 export type { InstallationSolution, CompiledInstallation } from './network/solveNetwork.js';
@@ -189,7 +189,7 @@ export type { FixedInstallationInput } from './network/solveFixedInstallation.js
 export { solveFixedInstallation } from './network/solveFixedInstallation.js';
 export type { ScanEvaluator, ScanBank, BankState } from './harmonics/scanEvaluator.js';
 export type { JointScanOptions, NetworkState } from './harmonics/scanJointResonance.js';
-export { scanJointResonance, scanNetworkStates, controllerLevels } from './harmonics/scanJointResonance.js';
+export { scanJointResonance, scanNetworkStates, controllerLevels, switchingLevels } from './harmonics/scanJointResonance.js';
 export { scanResonance, createScanEvaluator, scanGrid, stepCombinations, roundForPlot, shortCircuitVA } from './harmonics/scanResonance.js';
 export { DUTY_LIMITS, dutyFigures } from './harmonics/capacitorDuty.js';
 export { dutyConditions, withCapacitanceFactor, withLoadsOff, withOtherBanksOff, conditionWords } from './harmonics/dutyConditions.js';
@@ -213,6 +213,8 @@ export { rebalanceBoard } from './rebalance/rebalanceBoard.js';
 export { rebalanceInstallation } from './rebalance/rebalanceInstallation.js';
 export { conditionsFromScenarios } from './rebalance/rebalanceRules.js';
 export { conditionsFromIntervals } from './rebalance/intervalConditions.js';
+export { conditionsFromInstallationIntervals } from './rebalance/installationIntervalConditions.js';
+export type { InstallationIntervalConditions } from './rebalance/installationIntervalConditions.js';
 export type { IntervalConditions, IntervalConditionOptions, IntervalPick, LoadConditionInput } from './rebalance/intervalConditions.js';
 export { rewriteInstallationText } from './rebalance/rewriteBoardText.js';
 export type * from './rebalance/rebalanceResult.js';
@@ -240,7 +242,8 @@ export { renderReportHtml } from './render/report/renderReportHtml.js';
 export type { MarkdownReport } from './render/report/renderReportMarkdown.js';
 export { renderReportMarkdown } from './render/report/renderReportMarkdown.js';
 export type { ProfileChart } from './render/report/profileSection.js';
-export { profileSection } from './render/report/profileSection.js';
+export { profileSection, installationProfileSections } from './render/report/profileSection.js';
+export { boardSectionIds } from './render/report/installationSections.js';
 export { harmonicsSection } from './render/report/harmonicsSection.js';
 export { installationHarmonicsSections } from './render/report/installationHarmonicsSections.js';
 
@@ -251,8 +254,10 @@ export { parseHandFigures } from './handCheck/validateHandFigures.js';
 export type * from './handCheck/handCheckResult.js';
 export { checkHandFigures, addHandCapacitors } from './handCheck/checkHandFigures.js';
 export { textbookWorking } from './handCheck/textbookWorking.js';
-export type { ScenarioReading, ScenarioResult } from './profile/studyScenarios.js';
+export type { ScenarioReading, ScenarioResult, BoardScenarios } from './profile/studyScenarios.js';
 export { studyScenarios } from './profile/studyScenarios.js';
+export type { InstallationScenarioBoard, InstallationScenarioResult } from './profile/studyInstallationScenarios.js';
+export { studyInstallationScenarios } from './profile/studyInstallationScenarios.js';
 export type { SwitchingFromBank } from './profile/switchingFromBank.js';
 export { switchingFromBank } from './profile/switchingFromBank.js';
 // Regional conventions: phase names, voltage notation, voltage limits, region wording.

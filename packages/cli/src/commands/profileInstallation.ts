@@ -1,6 +1,9 @@
 /** `trivar profile` on an installation file: the interval data through every board and feeder at once. */
+import { mkdirSync } from 'node:fs';
 import { availableParallelism } from 'node:os';
+import { join } from 'node:path';
 import {
+  boardSectionIds,
   checkIntervalSequence,
   correctInstallation,
   driverColumns,
@@ -15,21 +18,27 @@ import {
   planDrivers,
   planInstallationColumns,
   studyInstallationProfile,
+  studyInstallationScenarios,
+  conventionsOf,
   type InstallationProfileStudy,
 } from '@trivar/core';
 import type { CliIo } from '../io.js';
 import { UsageError } from '../exitCodes.js';
 import { writeResult } from '../writeResult.js';
 import { readCsvHeader, readIntervalRows } from '../read/intervalCsv.js';
-import { renderInstallationProfileReport } from '../format/installationProfileReport.js';
+import { renderInstallationProfileReport, renderInstallationScenarioReport } from '../format/installationProfileReport.js';
 import { startProgress } from '../progress.js';
 import { assertNotInput, writeOutputFile } from '../outputFiles.js';
 import { installationIntervalCsv, installationSummaryCsv } from '../format/profileCsv.js';
+import { CHART_FILES, FEEDER_CHART_FILE, writeInstallationProfileCharts } from '../format/profileChartFiles.js';
 import type { ProfileCommandOptions } from './profile.js';
 import { inFileSection } from './correct.js';
 
-/** What installation files do not take yet, by option. */
-const NOT_FOR_INSTALLATIONS: readonly [keyof ProfileCommandOptions, string][] = [['charts', '--charts']];
+/** A folder per board for its charts, named after the board (`Mill intake` → `mill-intake`), unique. */
+export function chartFolders(names: readonly string[]): Map<string, string> {
+  const ids = boardSectionIds(names);
+  return new Map(names.map((n) => [n, ids.get(n)!.replace(/^board-/, '')]));
+}
 
 /**
  * The bank trivar correct designs for the installation (its correction section, on the board
@@ -54,13 +63,41 @@ function designedInstallationBank(spec: ReturnType<typeof parseInstallation>, in
   return { bank: switchingFromBank(selection.steps, selection.controller), board };
 }
 
-export async function runProfileInstallation(input: unknown, options: ProfileCommandOptions, io: CliIo, inputs: readonly string[] = []): Promise<InstallationProfileStudy> {
-  const spec = parseInstallation(input);
-  const { installation } = normaliseInstallation(spec);
-  for (const [key, option] of NOT_FOR_INSTALLATIONS)
-    if (options[key] !== undefined && options[key] !== false) throw new UsageError(`${option} is not available for installation files yet (single board files only); leave it out to get the per-board report`);
-  if (!options.data) throw new UsageError('give the interval data with --data <file.csv> (profile.scenarios are read on single board files only)');
-  assertNotInput([options.summaryCsv, options.intervalsCsv].filter((x): x is string => x !== undefined), [...inputs, options.data]);
+/** Options that need interval data, refused beside scenarios rather than left unused. */
+const DATA_ONLY: readonly [keyof ProfileCommandOptions, string][] = [
+  ['bank', '--bank'],
+  ['correctionBank', '--correction-bank'],
+  ['board', '--board'],
+  ['pf', '--pf'],
+  ['charts', '--charts'],
+  ['summaryCsv', '--summary-csv'],
+  ['intervalsCsv', '--intervals-csv'],
+  ['fillGaps', '--fill-gaps'],
+  ['unlistedAtRating', '--unlisted-at-rating'],
+];
+
+/** The file's `profile.scenarios` through every board at once (no interval data). */
+function runInstallationScenarios(spec: ReturnType<typeof parseInstallation>, installation: Installation, options: ProfileCommandOptions, io: CliIo): null {
+  if (!spec.profile?.scenarios)
+    throw new UsageError('give the interval data with --data <file.csv>, or scenarios under profile.scenarios in the installation file (see trivar profile --help)');
+  for (const [key, option] of DATA_ONLY)
+    if (options[key] !== undefined && options[key] !== false) throw new UsageError(`${option} works on interval data: give --data <file.csv> (profile.scenarios give each board's figures per scenario)`);
+  const result = studyInstallationScenarios(installation, spec.profile);
+  writeResult(io, result, options.json, (r) => renderInstallationScenarioReport(r, labellerOf(conventionsOf(installation.main).phaseNames)));
+  return null;
+}
+
+/**
+ * Reads the interval data and runs the profile study on a parsed installation (no files written);
+ * `trivar profile` and `trivar report --profile-data` share it.
+ */
+export async function computeInstallationProfileStudy(
+  spec: ReturnType<typeof parseInstallation>,
+  installation: Installation,
+  data: string,
+  options: ProfileCommandOptions,
+  io: CliIo,
+): Promise<InstallationProfileStudy> {
   if (options.board !== undefined && !options.bank && !options.correctionBank) throw new UsageError('--board places the bank: give --bank or --correction-bank too');
   if (options.correctionBank && options.bank) throw new UsageError('give either --bank (a bank sized from the profile) or --correction-bank (the correction study\'s bank), not both');
   if (options.correctionBank && options.pf !== undefined)
@@ -71,18 +108,17 @@ export async function runProfileInstallation(input: unknown, options: ProfileCom
   const bankBoard = options.board ?? designed?.board;
   const zone = options.timeZone ?? 'UTC';
   if (!isKnownTimeZone(zone)) throw new UsageError(`--time-zone: "${zone}" is not a time zone this system knows (expected an IANA name such as Europe/Lisbon or America/Chicago)`);
-  const plan = planInstallationColumns(installation, readCsvHeader(options.data), {
+  const plan = planInstallationColumns(installation, readCsvHeader(data), {
     ...(spec.profile?.groups ? { groups: spec.profile.groups } : {}),
     undrivenAtRating: options.unlistedAtRating ?? false,
   });
   const progress = startProgress(io);
-  let study: InstallationProfileStudy;
   try {
     progress.stage('reading', 1);
     const threads = options.threads ?? Math.min(2, availableParallelism());
-    const raw = await readIntervalRows(options.data, plan, { timeZone: zone }, threads);
+    const raw = await readIntervalRows(data, plan, { timeZone: zone }, threads);
     const table = checkIntervalSequence(raw, options.fillGaps ?? 'none');
-    study = studyInstallationProfile(
+    return studyInstallationProfile(
       {
         installation,
         loads: plan.board.loads,
@@ -107,9 +143,24 @@ export async function runProfileInstallation(input: unknown, options: ProfileCom
   } finally {
     progress.stop();
   }
+}
+
+export async function runProfileInstallation(input: unknown, options: ProfileCommandOptions, io: CliIo, inputs: readonly string[] = []): Promise<InstallationProfileStudy | null> {
+  const spec = parseInstallation(input);
+  const { installation } = normaliseInstallation(spec);
+  if (!options.data) return runInstallationScenarios(spec, installation, options, io);
+  const folders = chartFolders([installation.main.name, ...installation.subBoards.map((b) => b.name)]);
+  const chartFiles = options.charts ? [...[...folders.values()].flatMap((f) => CHART_FILES.map((name) => join(options.charts!, f, name))), join(options.charts, FEEDER_CHART_FILE)] : [];
+  assertNotInput([options.summaryCsv, options.intervalsCsv, ...chartFiles].filter((x): x is string => x !== undefined), [...inputs, options.data]);
+  const study = await computeInstallationProfileStudy(spec, installation, options.data, options, io);
   const label = labellerOf(study.result.phaseNames);
   if (options.summaryCsv) writeOutputFile(options.summaryCsv, installationSummaryCsv(study.result, label));
   if (options.intervalsCsv) writeOutputFile(options.intervalsCsv, installationIntervalCsv(study, installation.main.nominalLineToNeutralV, label));
+  if (options.charts) {
+    const dir = options.charts;
+    for (const folder of folders.values()) mkdirSync(join(dir, folder), { recursive: true });
+    writeInstallationProfileCharts(study, (board, name, text) => writeOutputFile(board === null ? join(dir, name) : join(dir, folders.get(board)!, name), text), label);
+  }
   writeResult(io, study.result, options.json, (r) => renderInstallationProfileReport(r, spec.profile?.tariff?.currency ?? 'units'));
   return study;
 }

@@ -15,6 +15,9 @@ import {
   parseBoard,
   parseInstallation,
   profileSection,
+  installationProfileSections,
+  boardSectionIds,
+  type ProfileChart,
   readBoardText,
   renderCurrentTriangles,
   renderReportHtml,
@@ -38,7 +41,8 @@ import { HAND_FIGURES_ON_INSTALLATION } from '../handFiguresWording.js';
 import { collapseOf, UsageError } from '../exitCodes.js';
 import { assertNotInput, writeOutputFile } from '../outputFiles.js';
 import { computeProfileStudy } from './profile.js';
-import { writeProfileCharts } from '../format/profileChartFiles.js';
+import { writeInstallationProfileCharts, writeProfileCharts } from '../format/profileChartFiles.js';
+import { computeInstallationProfileStudy } from './profileInstallation.js';
 import { readFigures } from './check.js';
 
 export interface ReportCommandOptions {
@@ -55,17 +59,38 @@ export interface ReportCommandOptions {
   readonly handFigures?: string;
 }
 
+/** Report captions of the chart files, by file name. */
+const CHART_CAPTIONS: Readonly<Record<string, string>> = {
+  'currents.svg': 'Line and neutral currents over the period (band: lowest to highest in each column)',
+  'power-factor.svg': 'Board power factor over the period',
+  'load-duration.svg': 'Load-duration curves: hours each current was reached or exceeded',
+  'feeder-loading.svg': "The busiest line of each board's incomer over the period, as a share of its rating",
+};
+
+const asChart = (name: string, svg: string): ProfileChart => ({ name: name.replace(/\.svg$/, ''), caption: CHART_CAPTIONS[name] ?? name, svg });
+
 /** The profile study of the interval data, as a report section with its charts. */
 async function profileReportSection(spec: BoardSpec, options: ReportCommandOptions, io: CliIo, naming: PhaseNaming): Promise<ReportSection> {
   const study = await computeProfileStudy(spec, options.profileData!, options.timeZone ? { timeZone: options.timeZone } : {}, io);
-  const charts: { name: string; caption: string; svg: string }[] = [];
-  const captions: Readonly<Record<string, string>> = {
-    'currents.svg': 'Line and neutral currents over the period (band: lowest to highest in each column)',
-    'power-factor.svg': 'Board power factor over the period',
-    'load-duration.svg': 'Load-duration curves: hours each current was reached or exceeded',
-  };
-  writeProfileCharts(study, (name, svg) => charts.push({ name: name.replace(/\.svg$/, ''), caption: captions[name] ?? name, svg }), labellerOf(naming));
+  const charts: ProfileChart[] = [];
+  writeProfileCharts(study, (name, svg) => charts.push(asChart(name, svg)), labellerOf(naming));
   return profileSection(study.result, charts, naming);
+}
+
+/** The installation's profile over the interval data: an overview and a section per board, with their charts. */
+async function installationProfileReportSections(spec: InstallationSpec, installation: Installation, options: ReportCommandOptions, io: CliIo, naming: PhaseNaming): Promise<ReportSection[]> {
+  const study = await computeInstallationProfileStudy(spec, installation, options.profileData!, options.timeZone ? { timeZone: options.timeZone } : {}, io);
+  const boards = new Map<string, ProfileChart[]>();
+  const overview: ProfileChart[] = [];
+  writeInstallationProfileCharts(
+    study,
+    (board, name, svg) => {
+      if (board === null) overview.push(asChart(name, svg));
+      else boards.set(board, [...(boards.get(board) ?? []), asChart(name, svg)]);
+    },
+    labellerOf(naming),
+  );
+  return installationProfileSections(study.result, { boards, overview }, boardSectionIds(study.result.boards.map((b) => b.board)), naming);
 }
 
 /** The hand check of `board` with its triangle drawing; problems in the figures are said to be in that file. */
@@ -109,8 +134,7 @@ function installationCorrectionOf(installation: Installation, section: NonNullab
   return { board: c.board, report: c.report, effect: c.effect };
 }
 
-function installationDocument(raw: unknown, figures: unknown, options: ReportCommandOptions): Reported {
-  if (options.profileData) throw new UsageError('--profile-data is read on single board files only; for an installation, trivar profile <file> --data <csv> gives every board\'s figures over the interval data');
+async function installationDocument(raw: unknown, figures: unknown, options: ReportCommandOptions, io: CliIo): Promise<Reported> {
   // The hand method works on one board and its own loads; a board inside an installation also carries the
   // boards beyond it and the drops before it, which the hand check's effects do not separate.
   if (figures !== null) throw new UsageError(`--hand-figures: ${HAND_FIGURES_ON_INSTALLATION}`);
@@ -120,7 +144,8 @@ function installationDocument(raw: unknown, figures: unknown, options: ReportCom
   const correction = options.correction !== false && spec.correction?.arrangement ? installationCorrectionOf(installation, spec.correction) : null;
   const wantsHarmonics = spec.harmonics !== undefined || spec.boards.some((b) => b.loads.some((l) => l.spectrum !== undefined));
   const harmonics = options.harmonics !== false && wantsHarmonics ? studyInstallationHarmonics(raw) : null;
-  return { doc: buildInstallationReport({ spec, result, correction, harmonics }), result };
+  const studySections = options.profileData ? await installationProfileReportSections(spec, installation, options, io, result.boards[0]!.result.conventions.phaseNames) : [];
+  return { doc: buildInstallationReport({ spec, result, correction, harmonics, studySections }), result };
 }
 
 export async function runReport(file: string, options: ReportCommandOptions, io: CliIo, footer: string): Promise<void> {
@@ -131,7 +156,7 @@ export async function runReport(file: string, options: ReportCommandOptions, io:
   if (out) assertNotInput([out], inputs);
   const raw = readBoardText(await io.readSource(file));
   const figures = options.handFigures ? readBoardText(await readFigures(options.handFigures, io)) : null;
-  const { doc, result } = isInstallationInput(raw) ? installationDocument(raw, figures, options) : await boardDocument(raw, figures, options, io);
+  const { doc, result } = isInstallationInput(raw) ? await installationDocument(raw, figures, options, io) : await boardDocument(raw, figures, options, io);
   writeReport(doc, format, out, inputs, footer, io);
   // As `trivar solve`: the report says so first and is written, then a collapse anywhere is the exit status.
   const collapse = collapseOf(result);

@@ -1,6 +1,19 @@
 /** InstallationProfileResult → the text report of `trivar profile` on an installation file. */
-import { labellerOf, type InstallationProfileBoard, type InstallationProfileResult, type PhaseLabeller } from '@trivar/core';
-import { bankLines, currentTable, dataLines, energyTable, monthTable, thresholdLines, voltageTable, worstTable } from './profileReport.js';
+import { labellerOf, type InstallationProfileBoard, type InstallationProfileResult, type InstallationScenarioResult, type PhaseLabeller } from '@trivar/core';
+import {
+  bankLines,
+  currentTable,
+  dataLines,
+  energyTable,
+  monthTable,
+  OVER_RATING_CAUTION,
+  scenarioOverRating,
+  scenarioTable,
+  scenarioYearLine,
+  thresholdLines,
+  voltageTable,
+  worstTable,
+} from './profileReport.js';
 import { fixed, renderTableWithin, section } from './textTable.js';
 
 const hours = (h: number) => (h === 0 ? '0' : h < 10 ? fixed(h, 2) : fixed(h, 1));
@@ -81,5 +94,23 @@ export function renderInstallationProfileReport(r: InstallationProfileResult, cu
       );
   }
   parts.push(section('Cautions'), ...r.cautions.map((c) => `  - ${c}`));
+  return `${parts.join('\n')}\n`;
+}
+
+/** The installation's scenarios (no interval data): a table per board, its incomer's currents and its own voltage band. */
+export function renderInstallationScenarioReport(r: InstallationScenarioResult, label: PhaseLabeller): string {
+  const parts = [`${r.installation} — scenarios (${fixed(r.hours, 0)} h), every board`, '  solved on the nodal path: every board and feeder at once in each scenario'];
+  for (const b of r.boards) {
+    parts.push(section(`${b.board} — currents in the ${b.fedFrom === null ? 'supply to the main board' : `feeder from ${b.fedFrom}`}`), scenarioTable(b, label), scenarioYearLine(b));
+    const band = `${limitPercent(b.limits.voltageLowPercent)}-${limitPercent(b.limits.voltageHighPercent)} %`;
+    const from = b.limits.voltageLimitsFrom === 'profile.limits' ? 'profile.limits' : `the board's limits, ${b.limits.voltageLimitsFrom}`;
+    parts.push(
+      b.outsideBand.length
+        ? `  voltage outside ${band} (${from}) in: ${b.outsideBand.join(', ')}`
+        : `  every scenario within ${band} (${from})`,
+    );
+  }
+  const over = r.boards.flatMap((b) => scenarioOverRating(b, label, `${b.board}, `));
+  if (over.length) parts.push(section('Over a rating'), ...over, OVER_RATING_CAUTION);
   return `${parts.join('\n')}\n`;
 }

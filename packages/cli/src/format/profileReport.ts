@@ -1,5 +1,5 @@
 /** ProfileResult → the text report of `trivar profile`. */
-import { labellerOf, type PhaseLabeller, type ProfileResult, type ProfileSummary, type ScenarioResult } from '@trivar/core';
+import { labellerOf, type PhaseLabeller, type ProfileResult, type ProfileSummary, type ScenarioResult, type BoardScenarios } from '@trivar/core';
 import { fixed, renderTable, section } from './textTable.js';
 
 const hours = (h: number) => (h === 0 ? '0' : h < 10 ? fixed(h, 2) : fixed(h, 1));
@@ -173,13 +173,12 @@ export function renderProfileReport(r: ProfileResult, currency: string, label: P
   return `${parts.join('\n')}\n`;
 }
 
-/** The report of a board file's scenarios (no interval data). */
-/** @param label the board file's phase labels (`labellerOf(conventionsOf(board).phaseNames)`) */
-export function renderScenarioReport(r: ScenarioResult, label: PhaseLabeller = LETTERED): string {
+/** A board's scenarios as a table, a row per scenario. */
+export function scenarioTable(r: BoardScenarios, label: PhaseLabeller = LETTERED): string {
   const phases = r.scenarios[0]?.lineA.length ?? 0;
   const names = (['A', 'B', 'C'] as const).slice(0, phases).map(label);
   const hasNeutral = r.scenarios.some((s) => s.neutralA !== null);
-  const table = renderTable(
+  return renderTable(
     [
       { header: 'scenario', align: 'left' },
       { header: 'h/yr' },
@@ -205,17 +204,34 @@ export function renderScenarioReport(r: ScenarioResult, label: PhaseLabeller = L
       fixed(s.pf, 3),
     ]),
   );
-  const over = r.scenarios.flatMap((s) => [
-    ...s.lineA.flatMap((a, k) => (r.lineRatingA !== null && a > r.lineRatingA ? [`  ${s.name}: line ${names[k]} carries ${fixed(a, 1)} A, above its ${fixed(r.lineRatingA, 0)} A rating`] : [])),
-    ...(s.neutralA !== null && r.neutralRatingA !== null && s.neutralA > r.neutralRatingA ? [`  ${s.name}: the neutral carries ${fixed(s.neutralA, 1)} A, above its ${fixed(r.neutralRatingA, 0)} A rating`] : []),
+}
+
+/** The year weighed by the scenarios' hours, in one line. */
+export const scenarioYearLine = (r: BoardScenarios): string =>
+  `  over the year: ${thousands(r.kWhImport)} kWh imported, ${thousands(r.kvarhLagging)} kvarh lagging, billing power factor ${fixed(r.billingPf, 3)}`;
+
+/** A line per scenario and conductor above its rating; `where` goes before each (a board's name and a colon, or ''). */
+export function scenarioOverRating(r: BoardScenarios, label: PhaseLabeller = LETTERED, where = ''): string[] {
+  const names = (['A', 'B', 'C'] as const).slice(0, r.scenarios[0]?.lineA.length ?? 0).map(label);
+  return r.scenarios.flatMap((s) => [
+    ...s.lineA.flatMap((a, k) => (r.lineRatingA !== null && a > r.lineRatingA ? [`  ${where}${s.name}: line ${names[k]} carries ${fixed(a, 1)} A, above its ${fixed(r.lineRatingA, 0)} A rating`] : [])),
+    ...(s.neutralA !== null && r.neutralRatingA !== null && s.neutralA > r.neutralRatingA ? [`  ${where}${s.name}: the neutral carries ${fixed(s.neutralA, 1)} A, above its ${fixed(r.neutralRatingA, 0)} A rating`] : []),
   ]);
+}
+
+export const OVER_RATING_CAUTION = '  Conductors above their rating overheat in service: check sizing against local wiring rules.';
+
+/** The report of a board file's scenarios (no interval data). */
+/** @param label the board file's phase labels (`labellerOf(conventionsOf(board).phaseNames)`) */
+export function renderScenarioReport(r: ScenarioResult, label: PhaseLabeller = LETTERED): string {
+  const over = scenarioOverRating(r, label);
   return `${[
     `${r.board} — scenarios (${fixed(r.hours, 0)} h)`,
     `  solved on the ${r.path === 'closed-form' ? 'closed-form (Millman) path' : 'nodal path'}`,
     '',
-    table,
+    scenarioTable(r, label),
     '',
-    `  over the year: ${thousands(r.kWhImport)} kWh imported, ${thousands(r.kvarhLagging)} kvarh lagging, billing power factor ${fixed(r.billingPf, 3)}`,
-    ...(over.length ? ['', 'Over a rating', ...over, '  Conductors above their rating overheat in service: check sizing against local wiring rules.'] : []),
+    scenarioYearLine(r),
+    ...(over.length ? ['', 'Over a rating', ...over, OVER_RATING_CAUTION] : []),
   ].join('\n')}\n`;
 }

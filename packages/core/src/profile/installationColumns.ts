@@ -24,7 +24,7 @@ export interface InstallationColumnPlan extends ColumnPlan {
 export const boardNamesOf = (installation: Installation): string[] => [installation.main.name, ...installation.subBoards.map((sb) => sb.name)];
 
 /** Every board's loads in one list, in board order, with the board number of each. */
-function flattenLoads(installation: Installation): { loads: BoardLoad[]; boards: number[] } {
+export function flattenLoads(installation: Installation): { loads: BoardLoad[]; boards: number[] } {
   const names = boardNamesOf(installation);
   const loads: BoardLoad[] = [];
   const boards: number[] = [];
@@ -38,7 +38,7 @@ function flattenLoads(installation: Installation): { loads: BoardLoad[]; boards:
 }
 
 /** What a load name (bare or `<board>/<load>`) stands for among the flattened loads. */
-function loadLookup(installation: Installation): (name: string) => number[] {
+export function loadLookup(installation: Installation): (name: string) => number[] {
   const names = boardNamesOf(installation);
   const byName = new Map<string, number[]>();
   const add = (key: string, index: number) => {

@@ -2,14 +2,15 @@
  * Scenarios from the board file (`profile.scenarios`): named load states with
  * the hours the board spends in each, for users without logged data. Each
  * scenario is one interval of the batch solve; energy and the billing power
- * factor weigh them by their hours.
+ * factor weigh them by their hours. The hours and the reading of one board's
+ * figures are shared with the installation's scenarios (studyInstallationScenarios.ts).
  */
 import type { Board } from '../board/boardModel.js';
 import { InputError, inputIssue, type InputIssue } from '../errors.js';
 import { compileBatchNetwork, type DriverSpec } from './batchNetwork.js';
 import { ratedPower } from './columnPlan.js';
-import type { ProfileSpec } from './profileSpec.js';
-import { allocateFigures, solveBatch } from './solveBatch.js';
+import type { ProfileSpec, ScenarioSpec } from './profileSpec.js';
+import { allocateFigures, solveBatch, type IntervalFigures } from './solveBatch.js';
 
 export interface ScenarioReading {
   readonly name: string;
@@ -24,11 +25,9 @@ export interface ScenarioReading {
   readonly pf: number;
 }
 
-export interface ScenarioResult {
-  readonly board: string;
-  readonly path: 'closed-form' | 'nodal';
+/** A board's readings in every scenario, and its year weighed by their hours. */
+export interface BoardScenarios {
   readonly scenarios: readonly ScenarioReading[];
-  readonly hours: number;
   readonly kWhImport: number;
   readonly kvarhLagging: number;
   readonly billingPf: number;
@@ -36,39 +35,43 @@ export interface ScenarioResult {
   readonly neutralRatingA: number | null;
 }
 
+export interface ScenarioResult extends BoardScenarios {
+  readonly board: string;
+  readonly path: 'closed-form' | 'nodal';
+  readonly hours: number;
+}
+
 const YEAR_HOURS = 8760;
 
 /**
- * @throws {InputError} when a scenario names a load or group the board does not have, or
- *   mixes hours and weights.
+ * Each scenario's hours (weights share out 8760 h); the issues of scenarios that give neither or mix
+ * the two are pushed onto `issues`.
  */
-export function studyScenarios(board: Board, profile: ProfileSpec): ScenarioResult {
-  const scenarios = profile.scenarios ?? [];
-  const issues: InputIssue[] = [];
-  const loadIndex = new Map(board.loads.map((l, i) => [l.name, i]));
-  const groups = profile.groups ?? {};
+export function scenarioHours(scenarios: readonly ScenarioSpec[], issues: InputIssue[]): number[] {
   const withHours = scenarios.filter((s) => s.hours !== undefined).length;
   if (withHours !== 0 && withHours !== scenarios.length)
     issues.push(inputIssue('mixed', 'profile.scenarios', 'every scenario with hours, or every scenario with a weight'));
   scenarios.forEach((s, k) => {
     if (s.hours === undefined && s.weight === undefined) issues.push(inputIssue('missing', `profile.scenarios[${k}].hours`, 'hours or weight'));
-    for (const name of Object.keys(s.loads))
-      if (!loadIndex.has(name) && !groups[name]) issues.push(inputIssue('unknown_load', `profile.scenarios[${k}].loads.${name}`, 'a load or group name of this board', name));
   });
-  if (issues.length) throw new InputError(issues, 'the scenarios are not valid');
   const totalWeight = scenarios.reduce((a, s) => a + (s.weight ?? 0), 0);
-  const hours = scenarios.map((s) => s.hours ?? ((s.weight ?? 0) / totalWeight) * YEAR_HOURS);
-  // One scale-factor driver per load; each scenario is one interval.
-  const drivers: DriverSpec[] = board.loads.map((l, i) => ({ name: l.name, loads: [{ load: i, coefficient: ratedPower(l) }] }));
+  return scenarios.map((s) => s.hours ?? ((s.weight ?? 0) / totalWeight) * YEAR_HOURS);
+}
+
+/** One scale-factor driver per load (its rating), and each scenario's factor per load as one interval. */
+export function scenarioDrivers(loads: readonly Board['loads'][number][], scenarios: readonly ScenarioSpec[], scalesOf: (s: ScenarioSpec) => Float64Array) {
+  const drivers: DriverSpec[] = loads.map((l, i) => ({ name: l.name, loads: [{ load: i, coefficient: ratedPower(l) }] }));
   const n = scenarios.length;
-  const re = board.loads.map(() => new Float64Array(n));
-  scenarios.forEach((s, k) => {
-    board.loads.forEach((_, i) => (re[i]![k] = s.others ?? 0));
-    for (const [name, scale] of Object.entries(s.loads)) for (const n2 of groups[name] ?? [name]) re[loadIndex.get(n2)!]![k] = scale;
-  });
-  const figures = allocateFigures(n, board.phases.length);
-  const net = compileBatchNetwork(board, drivers);
-  const { path } = solveBatch(net, { count: n, re, im: re.map(() => new Float64Array(n)) }, figures);
+  const re = loads.map(() => new Float64Array(n));
+  scenarios.forEach((s, k) => scalesOf(s).forEach((x, i) => (re[i]![k] = x)));
+  return { drivers, columns: { count: n, re, im: re.map(() => new Float64Array(n)) } };
+}
+
+/**
+ * A board's figures (one interval per scenario) read as scenarios, energy weighed by `hours`.
+ * @param powerFloorVA a board power below this is round-off, read as none (no kW, kvar or PF of its own) @defaultValue 0
+ */
+export function readBoardScenarios(board: Board, figures: IntervalFigures, scenarios: readonly ScenarioSpec[], hours: readonly number[], powerFloorVA = 0): BoardScenarios {
   const vPct = 100 / board.nominalLineToNeutralV;
   const readings = scenarios.map((s, k): ScenarioReading => {
     let w = 0;
@@ -77,6 +80,7 @@ export function studyScenarios(board: Board, profile: ProfileSpec): ScenarioResu
       w += figures.phaseW[p]![k]!;
       q += figures.phaseVar[p]![k]!;
     }
+    if (Math.hypot(w, q) < powerFloorVA) w = q = 0;
     const volts = figures.phaseV.map((c) => c[k]! * vPct);
     return {
       name: s.name,
@@ -94,14 +98,38 @@ export function studyScenarios(board: Board, profile: ProfileSpec): ScenarioResu
   const kWhImport = readings.reduce((a, r) => a + Math.max(r.kW, 0) * r.hours, 0);
   const kvarhLagging = readings.reduce((a, r) => a + Math.max(r.kvar, 0) * r.hours, 0);
   return {
-    board: board.name,
-    path,
     scenarios: readings,
-    hours: hours.reduce((a, b) => a + b, 0),
     kWhImport,
     kvarhLagging,
     billingPf: kWhImport > 0 ? kWhImport / Math.hypot(kWhImport, kvarhLagging) : 1,
     lineRatingA: board.lineRatingA,
     neutralRatingA: board.neutralRatingA,
   };
+}
+
+/**
+ * @throws {InputError} when a scenario names a load or group the board does not have, or
+ *   mixes hours and weights.
+ */
+export function studyScenarios(board: Board, profile: ProfileSpec): ScenarioResult {
+  const scenarios = profile.scenarios ?? [];
+  const issues: InputIssue[] = [];
+  const loadIndex = new Map(board.loads.map((l, i) => [l.name, i]));
+  const groups = profile.groups ?? {};
+  const hours = scenarioHours(scenarios, issues);
+  scenarios.forEach((s, k) => {
+    for (const name of Object.keys(s.loads))
+      if (!loadIndex.has(name) && !groups[name]) issues.push(inputIssue('unknown_load', `profile.scenarios[${k}].loads.${name}`, 'a load or group name of this board', name));
+  });
+  if (issues.length) throw new InputError(issues, 'the scenarios are not valid');
+  const { drivers, columns } = scenarioDrivers(board.loads, scenarios, (s) => {
+    const scales = new Float64Array(board.loads.length).fill(s.others ?? 0);
+    for (const [name, scale] of Object.entries(s.loads)) for (const n2 of groups[name] ?? [name]) scales[loadIndex.get(n2)!] = scale;
+    return scales;
+  });
+  const figures = allocateFigures(scenarios.length, board.phases.length);
+  const { path } = solveBatch(compileBatchNetwork(board, drivers), columns, figures);
+  const { scenarios: readings, ...year } = readBoardScenarios(board, figures, scenarios, hours);
+  // Keys in the order the JSON has always had them.
+  return { board: board.name, path, scenarios: readings, hours: hours.reduce((a, b) => a + b, 0), ...year };
 }

@@ -57,7 +57,10 @@ function frame(title: string, unit: string, w: number, h: number, y: (v: number)
       `<line x1="${MARGIN.left}" x2="${w - MARGIN.right}" y1="${num(y(t))}" y2="${num(y(t))}" stroke="#e3e3e3"/>`,
       `<text x="${MARGIN.left - 6}" y="${num(y(t) + 4)}" text-anchor="end" fill="#444">${escapeXml(String(Number(t.toPrecision(6))))}</text>`,
     );
-  for (const t of xTicks) parts.push(`<text x="${num(t.x)}" y="${h - MARGIN.bottom + 16}" text-anchor="middle" fill="#444">${escapeXml(t.label)}</text>`);
+  // The last label ends at its tick, inside the picture (the right margin is narrower than a date).
+  xTicks.forEach((t, k) =>
+    parts.push(`<text x="${num(t.x)}" y="${h - MARGIN.bottom + 16}" text-anchor="${k === xTicks.length - 1 && k > 0 ? 'end' : 'middle'}" fill="#444">${escapeXml(t.label)}</text>`),
+  );
   parts.push(`<rect x="${MARGIN.left}" y="${MARGIN.top}" width="${w - MARGIN.left - MARGIN.right}" height="${h - MARGIN.top - MARGIN.bottom}" fill="none" stroke="#999"/>`);
   return parts;
 }
@@ -108,13 +111,21 @@ export function renderTimeChart(input: TimeChartInput): string {
     if (!Number.isFinite(yMin)) [yMin, yMax] = [0, 1];
     if (yMin > 0 && mode === 'envelope') yMin = 0;
     if (yMax === yMin) yMax = yMin + 1;
+    // The top of the plot on a tick, so the highest value reads against the scale.
+    const ticks = niceTicks(yMin, yMax);
+    if (ticks.length > 1 && ticks[ticks.length - 1]! < yMax) yMax = ticks[ticks.length - 1]! + (ticks[1]! - ticks[0]!);
   }
   const plotH = h - MARGIN.top - MARGIN.bottom;
   const y = (v: number) => MARGIN.top + plotH * (1 - (v - yMin) / (yMax - yMin));
-  const x = (c: number) => MARGIN.left + c + 0.5;
+  // Fewer intervals than pixels (a day of half-hours): each column is widened to fill the plot.
+  const colW = (w - MARGIN.left - MARGIN.right) / cols;
+  const x = (c: number) => MARGIN.left + (c + 0.5) * colW;
+  // Dates along the axis; times of day when the whole period falls on one date.
+  const oneDay = n > 0 && input.labelOf(0).slice(0, 10) === input.labelOf(n - 1).slice(0, 10);
+  const tickLabel = (i: number) => (oneDay ? input.labelOf(i).slice(11, 16) : input.labelOf(i).slice(0, 10));
   const xTicks = Array.from({ length: 6 }, (_, k) => {
     const c = Math.round((k * (cols - 1)) / 5);
-    return { x: x(c), label: n ? input.labelOf(Math.min(n - 1, Math.floor((c * n) / cols))).slice(0, 10) : '' };
+    return { x: x(c), label: n ? tickLabel(Math.min(n - 1, Math.floor((c * n) / cols))) : '' };
   });
   const parts = frame(input.title, input.unit, w, h, y, niceTicks(yMin, yMax), xTicks);
   bands.forEach((b, k) => {

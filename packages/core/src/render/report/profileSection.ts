@@ -1,5 +1,11 @@
-/** The report section of a load-profile study: what the interval data showed, with its charts. */
-import type { ProfileResult } from '../../profile/studyProfile.js';
+/**
+ * The report section of a load-profile study: what the interval data showed, with its charts. On an
+ * installation: an overview (a row per board, the feeder loading, the bank) and a section per board
+ * with the same blocks a board's study has, its currents being its incomer's.
+ */
+import type { ProfileBankResult, ProfileResult } from '../../profile/studyProfile.js';
+import type { InstallationProfileResult } from '../../profile/studyInstallationProfile.js';
+import type { ProfileSummary, ResolvedLimits } from '../../profile/summariseFigures.js';
 import { fixed } from '../svgText.js';
 import type { ReportBlock, ReportSection } from './reportDocument.js';
 import { labellerOf, type PhaseNaming } from '../../board/conventions/phaseNames.js';
@@ -14,32 +20,40 @@ export interface ProfileChart {
 const orDash = (x: number | null, d: number): string => (x === null ? '—' : fixed(x, d));
 /** A voltage threshold as given: 90, 91.7 (c84-service-b), 94.25. */
 const limitPercent = (x: number) => String(Math.round(x * 100) / 100);
+const bandWords = (limits: ResolvedLimits) => (limits.voltageLimitsFrom === 'profile.limits' ? 'profile.limits' : `the board's voltage limits, ${limits.voltageLimitsFrom}`);
+const intervalWords = (p: Pick<ProfileResult, 'intervals' | 'timeZone'>) =>
+  `${p.intervals.count} of ${fixed(p.intervals.intervalSeconds / 60, 0)} min, ${p.intervals.first} to ${p.intervals.last} (${p.timeZone})`;
 
-/**
- * @param naming the phase naming conductors and phases are labelled with @defaultValue the board's (`p.phaseNames`)
- */
-export function profileSection(p: ProfileResult, charts: readonly ProfileChart[], naming: PhaseNaming = p.phaseNames): ReportSection {
+/** What one board's blocks are read from: a board's study, or one board of an installation's. */
+interface BoardProfileView {
+  readonly intervals: ProfileResult['intervals'];
+  readonly timeZone: string;
+  readonly limits: ResolvedLimits;
+  readonly before: ProfileSummary;
+  /** The conductors' caption: where the currents are measured. */
+  readonly currentsCaption: string;
+}
+
+/** The facts, the currents and the voltages of one board, then its charts. */
+function boardBlocks(p: BoardProfileView, charts: readonly ProfileChart[], naming: PhaseNaming, figurePrefix: string): ReportBlock[] {
   const s = p.before;
   const label = labellerOf(naming);
-  const blocks: ReportBlock[] = [
+  return [
     {
       kind: 'facts',
       items: [
-        ['Intervals', `${p.intervals.count} of ${fixed(p.intervals.intervalSeconds / 60, 0)} min, ${p.intervals.first} to ${p.intervals.last} (${p.timeZone})`],
+        ['Intervals', intervalWords(p)],
         ['Energy imported / exported', `${fixed(s.energy.kWhImport, 0)} kWh / ${fixed(s.energy.kWhExport, 0)} kWh`],
         ['Reactive energy lagging / leading', `${fixed(s.energy.kvarhLagging, 0)} kvarh / ${fixed(s.energy.kvarhLeading, 0)} kvarh`],
         ['Billing power factor', fixed(s.energy.billingPf, 3)],
         ['Hours importing at a leading PF', fixed(s.leadingHours, 1)],
         ...((s.unbalance ? [['Voltage unbalance, highest / 95th percentile', `${fixed(s.unbalance.maxPercent, 2)} % (${s.unbalance.maxAt}) / ${fixed(s.unbalance.p95Percent, 2)} %`]] : []) as [string, string][]),
-        [
-          `Hours below ${limitPercent(p.limits.voltageLowPercent)} % / above ${limitPercent(p.limits.voltageHighPercent)} % (${p.limits.voltageLimitsFrom === 'profile.limits' ? 'profile.limits' : `the board's voltage limits, ${p.limits.voltageLimitsFrom}`})`,
-          `${fixed(s.hoursVoltageLow, 1)} / ${fixed(s.hoursVoltageHigh, 1)}`,
-        ],
+        [`Hours below ${limitPercent(p.limits.voltageLowPercent)} % / above ${limitPercent(p.limits.voltageHighPercent)} % (${bandWords(p.limits)})`, `${fixed(s.hoursVoltageLow, 1)} / ${fixed(s.hoursVoltageHigh, 1)}`],
       ],
     },
     {
       kind: 'table',
-      caption: 'Conductor currents over the period',
+      caption: p.currentsCaption,
       columns: [{ label: 'Conductor' }, { label: 'Highest A', align: 'right' }, { label: 'When' }, { label: '99th % A', align: 'right' }, { label: '95th % A', align: 'right' }, { label: 'Rating A', align: 'right' }, { label: 'Hours over', align: 'right' }],
       rows: s.conductors.map((c) => [label(c.conductor), fixed(c.maxA, 1), c.maxAt, fixed(c.p99A, 1), fixed(c.p95A, 1), orDash(c.ratingA, 0), orDash(c.hoursAboveLimit, 1)]),
       note: 'Hours over: above the conductor rating; for the neutral, above the neutral limit of the study.',
@@ -50,21 +64,100 @@ export function profileSection(p: ProfileResult, charts: readonly ProfileChart[]
       columns: [{ label: 'Phase' }, { label: 'Lowest %', align: 'right' }, { label: 'When' }, { label: 'Highest %', align: 'right' }, { label: 'When' }],
       rows: s.voltages.map((v) => [label(v.phase), fixed(v.minPercent, 1), v.minAt, fixed(v.maxPercent, 1), v.maxAt]),
     },
-    ...charts.map((c): ReportBlock => ({ kind: 'figure', name: `profile-${c.name}`, caption: c.caption, svg: c.svg })),
+    ...charts.map((c): ReportBlock => ({ kind: 'figure', name: `${figurePrefix}${c.name}`, caption: c.caption, svg: c.svg })),
   ];
-  if (p.bank) {
-    const b = p.bank;
-    blocks.push({
-      kind: 'facts',
-      items: [
-        ['Automatic bank simulated', `${fixed(b.totalKvar, 1)} kvar in ${b.steps.length} steps${b.sizedFromProfile ? ' (sized from the profile)' : ''}`],
-        ['Billing power factor with the bank', fixed(b.after.energy.billingPf, 3)],
-        ['Hours leading with the bank', fixed(b.after.leadingHours, 1)],
-        ['Largest voltage rise from the bank', `${fixed(b.voltageRisePercent, 2)} % (${b.voltageRiseAt})`],
-        ['Busiest contactor reaches its typical life in', b.yearsToContactorLife === null ? '—' : `${fixed(b.yearsToContactorLife, 1)} years`],
-      ],
-    });
-  }
+}
+
+/** The simulated bank in facts. */
+function bankBlock(b: ProfileBankResult, where = ''): ReportBlock {
+  return {
+    kind: 'facts',
+    items: [
+      ['Automatic bank simulated', `${fixed(b.totalKvar, 1)} kvar in ${b.steps.length} steps${where}${b.sizedFromProfile ? ' (sized from the profile)' : ''}`],
+      ['Billing power factor with the bank', fixed(b.after.energy.billingPf, 3)],
+      ['Hours leading with the bank', fixed(b.after.leadingHours, 1)],
+      ['Largest voltage rise from the bank', `${fixed(b.voltageRisePercent, 2)} % (${b.voltageRiseAt})`],
+      ['Busiest contactor reaches its typical life in', b.yearsToContactorLife === null ? '—' : `${fixed(b.yearsToContactorLife, 1)} years`],
+    ],
+  };
+}
+
+/**
+ * @param naming the phase naming conductors and phases are labelled with @defaultValue the board's (`p.phaseNames`)
+ */
+export function profileSection(p: ProfileResult, charts: readonly ProfileChart[], naming: PhaseNaming = p.phaseNames): ReportSection {
+  const blocks = boardBlocks({ ...p, currentsCaption: 'Conductor currents over the period' }, charts, naming, 'profile-');
+  if (p.bank) blocks.push(bankBlock(p.bank));
   if (p.cautions.length) blocks.push({ kind: 'list', tone: 'caution', items: p.cautions });
   return { id: 'profile', title: 'Load over time', blocks };
+}
+
+/**
+ * The installation's profile: an overview section (`profile`: a row per board, the feeder loading chart, the
+ * bank and what it does at the supply, the cautions), then one per board (`profile-<board section id>`).
+ * @param charts each board's charts, by board name; `overview` the installation-wide ones
+ * @param ids each board's report section id (`boardSectionIds`), so a board's profile sits beside its section's anchor
+ */
+export function installationProfileSections(
+  r: InstallationProfileResult,
+  charts: { readonly boards: ReadonlyMap<string, readonly ProfileChart[]>; readonly overview: readonly ProfileChart[] },
+  ids: ReadonlyMap<string, string>,
+  naming: PhaseNaming = r.phaseNames,
+): ReportSection[] {
+  const peakLine = (s: ProfileSummary) => Math.max(...s.conductors.filter((c) => c.conductor !== 'N').map((c) => c.maxA));
+  const main = r.boards[0]!;
+  const overview: ReportBlock[] = [
+    { kind: 'facts', items: [['Intervals', intervalWords(r)], ['Boards', `${r.boards.length}, every board and feeder solved at once in each interval`]] },
+    {
+      kind: 'table',
+      caption: "Boards over the period: the supply at the main board, each sub-board's incoming feeder",
+      columns: [
+        { label: 'Board' },
+        { label: 'Fed from' },
+        { label: 'Highest line A', align: 'right' },
+        { label: 'Rating A', align: 'right' },
+        { label: 'Highest neutral A', align: 'right' },
+        { label: 'Lowest %', align: 'right' },
+        { label: 'Highest %', align: 'right' },
+        { label: 'Band %' },
+        { label: 'Hours low / high', align: 'right' },
+      ],
+      rows: r.boards.map((b) => {
+        const rating = b.before.conductors.find((c) => c.conductor !== 'N')?.ratingA ?? null;
+        const neutral = b.before.conductors.find((c) => c.conductor === 'N');
+        return [
+          b.board,
+          b.fedFrom ?? 'supply',
+          fixed(peakLine(b.before), 1),
+          orDash(rating, 0),
+          neutral ? fixed(neutral.maxA, 1) : '—',
+          fixed(Math.min(...b.before.voltages.map((v) => v.minPercent)), 1),
+          fixed(Math.max(...b.before.voltages.map((v) => v.maxPercent)), 1),
+          `${limitPercent(b.limits.voltageLowPercent)}–${limitPercent(b.limits.voltageHighPercent)}`,
+          `${fixed(b.before.hoursVoltageLow, 1)} / ${fixed(b.before.hoursVoltageHigh, 1)}`,
+        ];
+      }),
+    },
+    ...charts.overview.map((c): ReportBlock => ({ kind: 'figure', name: `profile-${c.name}`, caption: c.caption, svg: c.svg })),
+  ];
+  if (r.bank) {
+    overview.push(bankBlock(r.bank, ` on ${r.bank.board}`));
+    if (r.bank.board !== main.board && main.after)
+      overview.push({
+        kind: 'facts',
+        items: [
+          [`At the supply (${main.board}): billing power factor`, `${fixed(main.before.energy.billingPf, 3)} → ${fixed(main.after.energy.billingPf, 3)}`],
+          [`At the supply (${main.board}): highest line current`, `${fixed(peakLine(main.before), 1)} A → ${fixed(peakLine(main.after), 1)} A`],
+        ],
+      });
+  }
+  if (r.cautions.length) overview.push({ kind: 'list', tone: 'caution', items: r.cautions });
+  const boards = r.boards.map((b): ReportSection => {
+    const id = `profile-${ids.get(b.board)!}`;
+    const where = b.fedFrom === null ? 'the supply to the main board' : `the feeder from ${b.fedFrom}`;
+    const blocks = boardBlocks({ ...r, limits: b.limits, before: b.before, currentsCaption: `Currents in ${where} over the period` }, charts.boards.get(b.board) ?? [], naming, `${id}-`);
+    if (b.after && r.bank) blocks.push({ kind: 'facts', items: [[`Billing power factor with the bank on ${r.bank.board}`, fixed(b.after.energy.billingPf, 3)]] });
+    return { id, title: `Load over time — ${b.board}`, blocks };
+  });
+  return [{ id: 'profile', title: 'Load over time', blocks: overview }, ...boards];
 }
