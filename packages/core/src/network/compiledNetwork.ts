@@ -91,6 +91,11 @@ export class CompiledNetwork {
   private readonly pattern: SparsePattern;
   private readonly baseRe: Float64Array;
   private readonly baseIm: Float64Array;
+  /**
+   * Fixed right-hand side (the sources): by unknown number in the first `size` entries, then
+   * the same by elimination position (the order `assemble` writes it in). One array for the
+   * two: a typed array costs about half a microsecond to make, a good share of a compile.
+   */
   private readonly baseRhsRe: Float64Array;
   private readonly baseRhsIm: Float64Array;
   private readonly workRe: Float64Array;
@@ -233,8 +238,8 @@ export class CompiledNetwork {
     // Fixed part of the matrix and right-hand side.
     this.baseRe = new Float64Array(p.slotCount);
     this.baseIm = new Float64Array(p.slotCount);
-    this.baseRhsRe = new Float64Array(size);
-    this.baseRhsIm = new Float64Array(size);
+    this.baseRhsRe = new Float64Array(2 * size);
+    this.baseRhsIm = new Float64Array(2 * size);
     const stampFixed = (a: number, b: number, y: ComplexValue) => {
       const i = u(a);
       const j = u(b);
@@ -275,6 +280,10 @@ export class CompiledNetwork {
         this.baseRhsRe[im] = this.baseRhsRe[im]! - (jr);
         this.baseRhsIm[im] = this.baseRhsIm[im]! - (ji);
       }
+    }
+    for (let k = 0; k < size; k++) {
+      this.baseRhsRe[size + k] = this.baseRhsRe[p.order[k]!]!;
+      this.baseRhsIm[size + k] = this.baseRhsIm[p.order[k]!]!;
     }
     this.bSlots = new Int32Array(4 * m).fill(-1);
     for (let k = 0; k < m; k++) {
@@ -483,7 +492,8 @@ export class CompiledNetwork {
     const p = this.pattern;
     const re = this.workRe;
     const im = this.workIm;
-    this.assemble(re, im, this.rhsRe, this.rhsIm);
+    // The right-hand side straight into `x`, in elimination order, where the substitution works on it.
+    this.assemble(re, im, this.xRe, this.xIm);
     let scale = 0;
     for (let i = 0; i < p.size; i++) {
       const d = this.diagonalSlots[i]!;
@@ -492,19 +502,13 @@ export class CompiledNetwork {
     }
     const failed = factorInPlace(p, re, im, SPARSE_PIVOT_FLOOR, scale);
     this.factored = failed < 0;
+    // The unknowns stay in elimination order (`x`), which saves permuting them back each solve.
     if (failed >= 0) this.solveDense();
-    else {
-      // The unknowns stay in elimination order (`x`), which saves permuting them back each solve.
-      const order = p.order;
-      for (let k = 0; k < p.size; k++) {
-        this.xRe[k] = this.rhsRe[order[k]!]!;
-        this.xIm[k] = this.rhsIm[order[k]!]!;
-      }
-      substituteInOrder(p, re, im, this.xRe, this.xIm, 0);
-    }
+    else substituteInOrder(p, re, im, this.xRe, this.xIm, 0);
     this.scatterVoltages();
   }
 
+  /** The nodal matrix (by slot) and right-hand side (by elimination position) at the present admittances. */
   private assemble(re: Float64Array, im: Float64Array, rhsRe: Float64Array, rhsIm: Float64Array): void {
     // Element-wise copies: for the few slots of a board, TypedArray.set's call cost more than the copy.
     const baseRe = this.baseRe;
@@ -513,10 +517,14 @@ export class CompiledNetwork {
       re[s] = baseRe[s]!;
       im[s] = baseIm[s]!;
     }
-    for (let i = 0; i < this.nodeOfUnknown.length; i++) {
-      const v = this.nodeOfUnknown[i]!;
-      rhsRe[i] = this.baseRhsRe[i]! + this.injectionRe[v]!;
-      rhsIm[i] = this.baseRhsIm[i]! + this.injectionIm[v]!;
+    const baseRhsRe = this.baseRhsRe;
+    const baseRhsIm = this.baseRhsIm;
+    const nodeAt = this.nodeAtPosition;
+    const size = nodeAt.length;
+    for (let k = 0; k < size; k++) {
+      const v = nodeAt[k]!;
+      rhsRe[k] = baseRhsRe[size + k]! + this.injectionRe[v]!;
+      rhsIm[k] = baseRhsIm[size + k]! + this.injectionIm[v]!;
     }
     const slots = this.bSlots;
     for (let k = 0; k < this.branchCount; k++) {
@@ -545,11 +553,11 @@ export class CompiledNetwork {
         const from = this.bFrom[k]!;
         const to = this.bTo[k]!;
         if (ii >= 0 && to !== REFERENCE && this.kind[to] === NODE_FIXED) {
-          const i = this.unknownOf[from]!;
+          const i = this.pattern.position[this.unknownOf[from]!]!;
           rhsRe[i] = rhsRe[i]! + (yr * this.voltageRe[to]! - yi * this.voltageIm[to]!);
           rhsIm[i] = rhsIm[i]! + (yr * this.voltageIm[to]! + yi * this.voltageRe[to]!);
         } else if (jj >= 0 && from !== REFERENCE && this.kind[from] === NODE_FIXED) {
-          const j = this.unknownOf[to]!;
+          const j = this.pattern.position[this.unknownOf[to]!]!;
           rhsRe[j] = rhsRe[j]! + (yr * this.voltageRe[from]! - yi * this.voltageIm[from]!);
           rhsIm[j] = rhsIm[j]! + (yr * this.voltageIm[from]! + yi * this.voltageRe[from]!);
         }
@@ -572,7 +580,7 @@ export class CompiledNetwork {
         return s < 0 ? { re: 0, im: 0 } : { re: re[s]!, im: im[s]! };
       }),
     );
-    const b = Array.from({ length: n }, (_, i) => ({ re: rhsRe[i]!, im: rhsIm[i]! }));
+    const b = Array.from({ length: n }, (_, i) => ({ re: rhsRe[p.position[i]!]!, im: rhsIm[p.position[i]!]! }));
     const result = solveComplexSystem(a, b);
     if (!result.ok) {
       const node = this.nodeOfUnknown[leastDeterminedUnknown(a)];
@@ -732,12 +740,12 @@ export class CompiledNetwork {
       } else for (let g = 0; g < q; g++) mag[g] = this.pairNominal[g]!; // a small port pivot: the loop below, from the start
     }
     for (let solves = first; solves <= most; solves++) {
-      this.admittancesAtMagnitudes(threshold, true);
-      if (this.held) return false;
       // Through the ports while the step is still large; from the third solve on (the one
       // that usually confirms the state) the nodal matrix itself, whose node voltages are
       // the answer's.
       const viaPorts = reduction !== null && solves < 3;
+      this.admittancesAtMagnitudes(threshold, viaPorts);
+      if (this.held) return false;
       let moved: number;
       if (viaPorts) {
         moved = reduction.solvePorts(this.xRe, this.xIm);
@@ -776,6 +784,7 @@ export class CompiledNetwork {
         if (!this.prepareJacobian(reduction.inverseRe, reduction.inverseIm, reduction.portCount)) return false;
       } else if (!this.factored) return false;
       else {
+        this.pairSlopes(threshold);
         this.sparseTransfer();
         if (!this.prepareJacobian(this.transferRe, this.transferIm, q)) return false;
       }
@@ -792,15 +801,11 @@ export class CompiledNetwork {
   }
 
   /**
-   * Branch admittances at the pairs' present magnitudes (`magnitude`), and their sums
-   * per load port when the network solves through them; with `slopes`, also each
-   * pair's dY/dm (zero where held). Sets `held` when a voltage-dependent branch is
-   * below the low-voltage threshold.
+   * Branch admittances at the pairs' present magnitudes (`magnitude`); with `throughPorts`,
+   * also their sums per load port and each pair's dY/dm (`pairSlopes`). Sets `held` when a
+   * voltage-dependent branch is below the low-voltage threshold.
    */
-  private admittancesAtMagnitudes(threshold: number, slopes: boolean): void {
-    const q = this.pairCount;
-    const slopeRe = this.slopeRe;
-    const slopeIm = this.slopeIm;
+  private admittancesAtMagnitudes(threshold: number, throughPorts: boolean): void {
     const magnitude = this.magnitude;
     const pairOf = this.pairOf;
     const portOf = this.portOf;
@@ -811,12 +816,7 @@ export class CompiledNetwork {
     const powerRe = this.powerRe;
     const powerIm = this.powerIm;
     let held = false;
-    if (slopes)
-      for (let g = 0; g < q; g++) {
-        slopeRe[g] = 0;
-        slopeIm[g] = 0;
-      }
-    const ports = this.reduction;
+    const ports = throughPorts ? this.reduction : null;
     const portRe = ports === null ? null : ports.admittanceRe;
     const portIm = ports === null ? null : ports.admittanceIm;
     if (portRe !== null && portIm !== null)
@@ -844,13 +844,43 @@ export class CompiledNetwork {
         portRe[port] = portRe[port]! + yr;
         portIm[port] = portIm[port]! + yi;
       }
-      if (slopes && g >= 0 && v > floor) {
-        const slope = -(zi * ratio + 2 * zp * ratio * ratio) / (v * v0 * v0);
-        slopeRe[g] = slopeRe[g]! + powerRe[k]! * slope;
-        slopeIm[g] = slopeIm[g]! - powerIm[k]! * slope;
-      }
     }
     this.held = held;
+    if (throughPorts) this.pairSlopes(threshold);
+  }
+
+  /**
+   * Each pair's dY/dm at its present magnitude (zero where held), the ratio as
+   * `admittancesAtMagnitudes` takes it: asked for only when a Newton step follows.
+   */
+  private pairSlopes(threshold: number): void {
+    const slopeRe = this.slopeRe;
+    const slopeIm = this.slopeIm;
+    const magnitude = this.magnitude;
+    const pairOf = this.pairOf;
+    const vNominal = this.vNominal;
+    const zipI = this.zipI;
+    const zipP = this.zipP;
+    const powerRe = this.powerRe;
+    const powerIm = this.powerIm;
+    for (let g = 0; g < this.pairCount; g++) {
+      slopeRe[g] = 0;
+      slopeIm[g] = 0;
+    }
+    for (let k = 0; k < this.branchCount; k++) {
+      const g = pairOf[k]!;
+      if (g < 0) continue;
+      const v0 = vNominal[k]!;
+      const v = magnitude[g]!;
+      const floor = threshold * v0;
+      if (!(v > floor)) continue;
+      const ratio = v0 / Math.max(v, floor);
+      const zi = zipI[k]!;
+      const zp = zipP[k]!;
+      const slope = -(zi * ratio + 2 * zp * ratio * ratio) / (v * v0 * v0);
+      slopeRe[g] = slopeRe[g]! + powerRe[k]! * slope;
+      slopeIm[g] = slopeIm[g]! - powerIm[k]! * slope;
+    }
   }
 
   /** The right-hand side into the reduction: its sources alone (known since compile time) unless a caller injects current. */
