@@ -4,11 +4,25 @@
  * trees of boards, unequal and zero-impedance conductors, every supply shape) and
  * random intervals: every board's bus voltages, neutral-bar voltage, incomer line
  * currents and neutral current agree to 1e-9 relative (absolute floor 1e-9 × the
- * largest quantity of its kind on the interval), interval by interval.
+ * largest quantity of its kind on the interval), interval by interval. The same
+ * with the installation framed at the origin (a bank's controller reading the
+ * supply's terminals): the origin's bus voltages are the general solve's, its line
+ * currents the main board's, and Ohm's law holds along the service cable.
  */
 import fc from 'fast-check';
 import { describe, it } from 'vitest';
-import { normaliseInstallation, parseInstallation, planDrivers, solveInstallationNetwork, terminalVoltage, type Installation, type InstallationSpec } from '@trivar/core';
+import {
+  boardOfInstallation,
+  installationOf,
+  normaliseInstallation,
+  parseInstallation,
+  planDrivers,
+  solveInstallationNetwork,
+  terminalVoltage,
+  type Installation,
+  type InstallationSpec,
+} from '@trivar/core';
+import { meteringPlace } from '../../packages/core/src/correction/meteringPoint.js';
 import { planInstallationColumns } from '../../packages/core/src/profile/installationColumns.js';
 import { compileInstallationBatch, createInstallationKernel } from '../../packages/core/src/profile/installationBatch.js';
 import { edgePowersAt, type DriverColumns } from '../../packages/core/src/profile/batchNetwork.js';
@@ -79,6 +93,59 @@ describe('installation batch path = general compiled solve', () => {
         },
       ),
       { numRuns: 40 },
+    );
+  });
+
+  it('framed at the origin (a bank read at the supply\'s terminals): the general solve of the framed circuit, and Ohm\'s law along the service cable', () => {
+    fc.assert(
+      fc.property(
+        installationSpecArb({ minBoards: 1, maxBoards: 4 }).chain((spec) => {
+          const loadCount = spec.boards.reduce((s, b) => s + (b.loads?.length ?? 0), 0);
+          return fc.tuple(fc.constant(spec), fc.array(fc.array(scaleArb, { minLength: loadCount, maxLength: loadCount }), { minLength: 1, maxLength: 2 }));
+        }),
+        ([spec, intervals]) => {
+          const { installation } = normaliseInstallation(parseInstallation(strip(spec)));
+          const names = [installation.main, ...installation.subBoards].flatMap((b) => b.loads.map((l) => `${b.name}/${l.name} [x]`));
+          if (names.length === 0) return;
+          const frame = installationOf(meteringPlace(boardOfInstallation(installation, 0), 'origin')!.inFrame(boardOfInstallation(installation, 0))).installation;
+          const plan = planInstallationColumns(installation, ['time', ...names]);
+          const net = compileInstallationBatch(frame, plan.board.loads, plan.loadBoards.map((b) => b + 1), planDrivers(plan));
+          const kernel = createInstallationKernel(net);
+          const columns: DriverColumns = {
+            count: intervals.length,
+            re: names.map((_, l) => Float64Array.from(intervals, (x) => x[l]!)),
+            im: names.map(() => new Float64Array(intervals.length)),
+          };
+          const powers = new Float64Array(net.edges.length * 6);
+          intervals.forEach((scales, i) => {
+            edgePowersAt(net, columns, i, powers);
+            kernel.solve(powers, i);
+            const general = solveInstallationNetwork(scaledInstallation(frame, scales));
+            const vMax = Math.max(...installation.main.emf.map((e) => Math.hypot(e.re, e.im)));
+            const rated = plan.board.loads.flatMap((l) => l.branches).reduce((t, b) => t + Math.hypot(b.sNominal.re, b.sNominal.im), 0) / installation.main.nominalLineToNeutralV;
+            const iMax = Math.max(rated, ...general.boards.flatMap((g) => g.lineCurrents.map((c) => Math.hypot(c.re, c.im))));
+            const [origin, main] = [kernel.states[0]!, kernel.states[1]!];
+            installation.main.phases.forEach((p, k) => {
+              expectComplexClose({ re: origin.busRe[k]!, im: origin.busIm[k]! }, terminalVoltage(general.boards[0]!, p)!, { rel: REL, abs: REL * vMax }, `interval ${i} origin ${p}`);
+              // One current through the service cable: the origin's lines are the main board's.
+              expectComplexClose({ re: origin.lineRe[k]!, im: origin.lineIm[k]! }, { re: main.lineRe[k]!, im: main.lineIm[k]! }, { rel: REL, abs: REL * iMax }, `interval ${i} line ${p}`);
+            });
+            // Ohm's law on each line of the service cable: origin − main board = Z · I.
+            const service = frame.subBoards[0]!.feeder.lineImpedances;
+            installation.main.phases.forEach((p, k) => {
+              const z = service[k]!;
+              const i0 = { re: main.lineRe[k]!, im: main.lineIm[k]! };
+              expectComplexClose(
+                { re: origin.busRe[k]! - main.busRe[k]!, im: origin.busIm[k]! - main.busIm[k]! },
+                { re: z.re * i0.re - z.im * i0.im, im: z.re * i0.im + z.im * i0.re },
+                { rel: REL, abs: REL * vMax },
+                `interval ${i} service cable ${p}`,
+              );
+            });
+          });
+        },
+      ),
+      { numRuns: 25 },
     );
   });
 });
