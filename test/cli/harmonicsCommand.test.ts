@@ -65,7 +65,10 @@ describe('trivar harmonics on an installation (built binary)', () => {
     expect(joint).toContain('other banks scanned at Finishing shop: off, step 1, steps 1+2');
     // Warnings are wrapped to the report width: read them as one line each.
     expect(r.stdout.replace(/\n {4}/g, ' ')).toContain('! Machine shop: Machine shop bank steps 1+2+3 with Finishing shop bank off: resonance with the supply at h ≈ 7.01, within ±10 % of order 7');
-    expect(r.stdout).toContain('other banks on and out of service');
+    const unwrapped = r.stdout.replace(/\n {4}/g, ' ');
+    expect(unwrapped).toContain('other banks on, out of service and in any state the joint scan finds near a checked order: steps 1+2, capacitance +10 %, every load off, other banks on');
+    // Finishing shop's worst duty is with Machine shop at steps 1+3, a state the joint scan found near a checked order.
+    expect(unwrapped).toContain('near a checked order: step 1, capacitance +10 %, every load off, Machine shop bank steps 1+3');
   });
 
   it('--board prints that board’s full figures; --all-boards every board’s', () => {

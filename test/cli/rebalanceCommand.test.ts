@@ -101,9 +101,24 @@ describe('trivar rebalance (built binary)', () => {
       expect(names.some((n) => n.includes(why))).toBe(true);
     expectClose(report.conditions.reduce((s, c) => s + c.weight, 0), 24, { rel: 1e-12, abs: 1e-12 }, 'hours of the data');
     expect(report.solvedScore.after).toBeLessThan(report.solvedScore.before);
+    // The riser has no load of those names: the header is refused column by column.
     const riserData = runTrivar(['rebalance', riser, '--data', csv]);
-    expect(riserData.code).toBe(2);
-    expect(riserData.stderr).toMatch(/--data: interval data drives one board/);
+    expect(riserData.code).toBe(3);
+    expect(riserData.stderr).toMatch(/header, column 2 \("flats A \[kW\]"\): expected a load name on one board, "<board>\/<load>"/);
+  });
+
+  it('--data on an installation: the incomer peaks, each sub-board feeder peak and the quantiles become the conditions', () => {
+    const r = runTrivar(['rebalance', 'examples/osier-mill-studios.yaml', '--data', 'examples/osier-mill-day.csv', '--json', '--no-table']);
+    expect(r.stderr).toBe('');
+    expect(r.code).toBe(0);
+    const report = JSON.parse(r.stdout) as ReturnType<typeof rebalanceBoard>;
+    const names = [...new Set(report.conditions.map((c) => c.name))];
+    for (const why of ['peak line A', 'peak line B', 'peak line C', 'peak neutral', 'peak current at Pottery', 'peak current at Print room', 'peak import'])
+      expect(names.some((n) => n.includes(why)), why).toBe(true);
+    // One day of data: the weights of the distinct conditions add up to 24 h.
+    const weights = new Map(report.conditions.map((c) => [c.name, c.weight]));
+    expectClose([...weights.values()].reduce((s, w) => s + w, 0), 24, { rel: 1e-12, abs: 1e-12 }, 'hours of the data');
+    expect(report.solvedScore.after).toBeLessThanOrEqual(report.solvedScore.before);
   });
 
   it('refuses to write over its input', () => {

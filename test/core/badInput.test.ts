@@ -76,6 +76,9 @@ const cases: [string, unknown, string, string][] = [
   ['empty load name', edit((b) => (b.loads[0].name = '')), 'out_of_range', 'loads[0].name'],
   ['negative feeder resistance', edit((b) => (b.feeder = { line: { r: -0.1, x: 0 } })), 'out_of_range', 'feeder.line.r'],
   ['feeder length without resistance', edit((b) => (b.feeder = { line: { lengthM: 30 } })), 'missing', 'feeder.line.rOhmPerKm'],
+  ['steel conduit on a metric cable', edit((b) => (b.feeder = { lengthM: 30, line: { mm2: 35, conduit: 'steel' } })), 'not_applicable', 'feeder.line.conduit'],
+  ['conduit beside a stated reactance', edit((b) => (b.feeder = { lengthM: 30, line: { awg: '2', conduit: 'steel', xOhmPerKm: 0.2 } })), 'conflict', 'feeder.line'],
+  ['unknown conduit', edit((b) => (b.feeder = { lengthM: 30, line: { awg: '2', conduit: 'iron' } })), 'invalid_value', 'feeder.line.conduit'],
   ['neutral feeder on 3-wire', edit((b) => {
     b.supply.system = 'three-phase-3wire';
     b.feeder = { neutral: { r: 0.1, x: 0 } };

@@ -18,6 +18,7 @@ import { readFileSync } from 'node:fs';
 import { afterAll, describe, expect, it } from 'vitest';
 import {
   controllerLevels,
+  switchingLevels,
   createInstallationScanEvaluator,
   parseInstallation,
   readBoardText,
@@ -95,8 +96,8 @@ describe('joint scan by hand: two banks behind their feeders on a stiff source',
   const joint = fromA.jointScan!;
   const full = joint.combinations.find((c) => c.label === 'steps 1+2')!;
 
-  it('bank B is scanned at each level a controller reaches: off, then its one step', () => {
-    expect(joint.coverage).toBe('controller levels');
+  it('bank B is scanned in every state of its steps: off, then its one step', () => {
+    expect(joint.coverage).toBe('every step combination');
     expect(joint.otherBanks).toEqual([{ board: 'Plant B', levels: [expect.objectContaining({ label: 'off', capacitorKvar: 0 }), expect.objectContaining({ label: 'step 1' })] }]);
     // Bank A's distinct states (off, one 50 kvar step, both) × bank B's two levels.
     expect(joint.networkStates).toBe(3 * 2);
@@ -161,6 +162,33 @@ describe('joint scan by hand: two banks behind their feeders on a stiff source',
     // 8.94 with B off is within 10 % of neither 7 nor 11; 6.67 with B on is within 10 % of the 7th.
     expect(full.nearOrders.map((n) => [n.order, n.peak.otherBanks])).toEqual([[7, 'Plant B bank step 1']]);
     expect(full.nearest!.checkedOrder).toBe(7);
+  });
+});
+
+describe('joint scan by hand: the other bank switched out of its written order', () => {
+  // Bank B of 20 + 80 kvar: a controller that switches by need may run step 2 alone (80 kvar,
+  // X_C = 400²/80 kvar = 2.0 Ω), a level stepping in the written order never reaches.
+  const UNEQUAL = { ...TWO_BANKS, harmonics: { ...TWO_BANKS.harmonics, banks: [TWO_BANKS.harmonics!.banks![0]!, { board: 'Plant B', connection: 'delta', ratedV: 400, stepsKvar: [20, 80] }] } } as InstallationSpec;
+
+  it('every state of bank B is scanned, step 2 alone too, with the lossless resonances of that state', () => {
+    const joint = studyInstallationHarmonics(UNEQUAL).scans.find((s) => s.board === 'Plant A')!.jointScan!;
+    expect(joint.coverage).toBe('every step combination');
+    expect(joint.otherBanks[0]!.levels.map((l) => [l.label, +l.capacitorKvar.toFixed(6)])).toEqual([['off', 0], ['step 1', 20], ['step 2', 80], ['steps 1+2', 100]]);
+    expect(joint.networkStates).toBe(3 * 4);
+    const full = joint.combinations.find((c) => c.label === 'steps 1+2')!;
+    const alone2 = full.states.find((x) => x.otherBanks === 'Plant B bank step 2')!;
+    const roots = losslessResonances(XC, 400 ** 2 / 80e3);
+    expect(alone2.peakOrders).toHaveLength(roots.length);
+    alone2.peakOrders.forEach((h, k) => expect(Math.abs(h - roots[k]!) / roots[k]!).toBeLessThan(2e-3));
+  });
+
+  it('where every state would pass the limit, the written order is scanned and the assumptions say other orders are not', () => {
+    const report = studyInstallationHarmonics(UNEQUAL, { jointStateLimit: 9 });
+    const joint = report.scans.find((s) => s.board === 'Plant A')!.jointScan!;
+    expect(joint.coverage).toBe('controller levels');
+    expect(joint.otherBanks[0]!.levels.map((l) => l.label)).toEqual(['off', 'step 1', 'steps 1+2']);
+    expect(joint.combinations.every((c) => c.states.every((x) => x.otherBanks !== 'Plant B bank step 2'))).toBe(true);
+    expect(report.assumptions.some((a) => a.startsWith('Plant A:') && a.includes('order the steps are written') && a.includes('other switching orders are not covered'))).toBe(true);
   });
 });
 
@@ -229,10 +257,20 @@ describe('joint scan on random installations', () => {
 
           // The summary over the other banks' states contains the all-on state's peaks.
           const joint = scanJointResonance(fundamental, models, evaluator, { grid, checkedOrders: [5, 7, 11] })!;
-          const levels = evaluator.banks.flatMap((bank, k) => (k === evaluator.ownBank ? [] : [controllerLevels(fundamental.boards[bank.board]!.board, models[bank.board]!.bank!)]));
+          const otherBanks = evaluator.banks.filter((_, k) => k !== evaluator.ownBank).map((bank) => [fundamental.boards[bank.board]!.board, models[bank.board]!.bank!] as const);
+          const levels = otherBanks.map(([board, bank]) => switchingLevels(board, bank));
+          expect(joint.coverage).toBe('every step combination');
           levels.forEach((l, j) => {
+            const [board, bank] = otherBanks[j]!;
             expect(joint.otherBanks[j]!.levels.map((x) => x.label)).toEqual(l.map((x) => x.label));
+            // Everything off first, everything on last, least capacitance first, no two electrically alike.
+            expect(l[0]!.capacitorKvar).toBe(0);
             expect(l.at(-1)!.steps.every(Boolean) && l.at(-1)!.fixedOn).toBe(true);
+            l.slice(1).forEach((x, k) => expect(x.capacitorKvar).toBeGreaterThanOrEqual(l[k]!.capacitorKvar));
+            const keys = l.map((x) => `${x.fixedOn} ${stateKey(board, bank, x.steps)}`);
+            expect(new Set(keys).size).toBe(l.length);
+            // Every level a controller reaches in the written order is one of them.
+            for (const x of controllerLevels(board, bank)) expect(keys).toContain(`${x.fixedOn} ${stateKey(board, bank, x.steps)}`);
           });
           const others = levels.reduce((n, l) => n * l.length, 1);
           joint.combinations.forEach((c, k) => {
@@ -311,7 +349,7 @@ describe('joint scan on random installations', () => {
     expect(joint.coverage).toBe('all off or all on together');
     expect(report.assumptions.some((a) => a.includes('Plant A') && a.includes('more than 2 networks') && a.includes('intermediate levels are not covered'))).toBe(true);
     const roomy = studyInstallationHarmonics(TWO_BANKS, { jointStateLimit: 6 });
-    expect(roomy.scans[0]!.jointScan!.coverage).toBe('controller levels');
+    expect(roomy.scans[0]!.jointScan!.coverage).toBe('every step combination');
     for (const bad of [0, 2.5, Number.NaN]) {
       expect(() => studyInstallationHarmonics(TWO_BANKS, { jointStateLimit: bad })).toThrow(/jointStateLimit.*whole number of networks, at least 1/);
     }
@@ -322,6 +360,27 @@ describe('capacitor duty with the other banks out of service', () => {
   const example = readBoardText(readFileSync(new URL('../../examples/ferrybank-joinery.yaml', import.meta.url), 'utf8')) as InstallationSpec & { harmonics: { banks: unknown[] } };
   const both = studyInstallationHarmonics(example);
   const alone = studyInstallationHarmonics({ ...example, harmonics: { ...example.harmonics, banks: example.harmonics.banks.slice(0, 1) } });
+
+  it('a state of the other bank near a checked order is checked too: Finishing shop with Machine shop at steps 1+3 equals the file with only those steps', () => {
+    // From Finishing shop, the joint scan puts a peak near a checked order with Machine shop at steps 1+3
+    // (90 kvar: a level stepping 30, 30, 60 in the written order never reaches).
+    const duty = both.scans.find((s) => s.board === 'Finishing shop')!.capacitorDuty!;
+    const step1 = duty.cases.find((c) => c.label === 'step 1')!;
+    expect(step1.condition).toEqual({ capacitancePercent: 110, loads: 'off', otherBanks: 'switched', otherBanksState: 'Machine shop bank steps 1+3' });
+    expect(both.assumptions.some((a) => a.includes('in each state at which the joint scan puts a peak within ±10 % of a checked order'))).toBe(true);
+    // The same network written another way: Machine shop's bank as its steps 1 and 3 alone (30 + 60 kvar), all on.
+    const banks = example.harmonics.banks as { board: string; stepsKvar: number[] }[];
+    const written = { ...example, harmonics: { ...example.harmonics, banks: banks.map((b) => (b.board === 'Machine shop' ? { ...b, stepsKvar: [b.stepsKvar[0]!, b.stepsKvar[2]!] } : b)) } };
+    const same = studyInstallationHarmonics(written).scans.find((s) => s.board === 'Finishing shop')!.capacitorDuty!.cases.find((c) => c.label === 'step 1')!;
+    expect(same.condition).toEqual({ capacitancePercent: 110, loads: 'off', otherBanks: 'on' });
+    for (const key of ['voltageRms', 'voltagePeak', 'currentRms', 'kvar'] as const) {
+      figures.note('duty at a switched state vs the file written with those steps on, relative', Math.abs(step1.figures[key] - same.figures[key]) / same.figures[key], key);
+      expect(Math.abs(step1.figures[key] - same.figures[key])).toBeLessThan(1e-9 * same.figures[key]);
+    }
+    // 1.20 × rated current: the worst of this bank's duty (with Machine shop fully on or out of service it was 1.07).
+    expect(step1.figures.currentRms).toBeCloseTo(1.2022, 3);
+    expect(duty.worst).toEqual(step1);
+  });
 
   it('every state is checked with the other bank on and out of service; off equals the file without that bank', () => {
     const duty = both.scans.find((s) => s.board === 'Machine shop')!.capacitorDuty!;

@@ -38,6 +38,24 @@ const threeLoadSpec: BoardSpec = {
   ],
 };
 
+/**
+ * Random four-wire boards whose single-phase loads are moved onto three node pairs that form
+ * no loop (a load from each phase to neutral, or A–N, B–N and B–C, …): the boards the written-out
+ * three-pair steps take when each pair carries a voltage-dependent load.
+ */
+const THREE_PAIRS = [
+  ['A-N', 'B-N', 'C-N'],
+  ['A-N', 'B-N', 'B-C'],
+  ['A-N', 'C-N', 'A-B'],
+  ['B-N', 'C-N', 'C-A'],
+] as const;
+const threePairBoardArb = fc.tuple(boardSpecArb({ systems: ['three-phase-4wire'], maxLoads: 9 }), fc.constantFrom(...THREE_PAIRS)).map(
+  ([spec, pairs]): BoardSpec => ({
+    ...spec,
+    loads: spec.loads.filter((load) => load.connection !== 'ABC-star' && load.connection !== 'ABC-delta').map((load, k) => ({ ...load, connection: pairs[k % 3]! })),
+  }),
+);
+
 describe('Newton through the load ports against the fixed-point iteration', () => {
   it('a three-load board takes the ports and reaches the fixed-point state', () => {
     const compiled = compileBoard(normaliseBoard(parseBoard(threeLoadSpec)));
@@ -85,6 +103,41 @@ describe('Newton through the load ports against the fixed-point iteration', () =
       }),
       { numRuns: 40 },
     );
+  });
+
+  it('the written-out three-pair steps (threePairPortSteps.ts) give the general loop’s state to the bit', () => {
+    // The same board compiled twice, one with the written-out steps taken away: it then runs
+    // the general loop through the ports, which the steps must follow operation for operation.
+    const general = (compiled: CompiledBoard) => {
+      (compiled.network as unknown as { threePairSteps: unknown }).threePairSteps = null;
+      return compiled;
+    };
+    let taken = 0;
+    fc.assert(
+      fc.property(threePairBoardArb, fc.double({ min: 0.2, max: 4, noNaN: true }), (spec, scale) => {
+        const fast = compileBoard(normaliseBoard(spec));
+        if ((fast.network as unknown as { threePairSteps: unknown }).threePairSteps === null) return;
+        const slow = general(compileBoard(normaliseBoard(spec)));
+        for (const net of [fast.network, slow.network]) for (let k = 0; k < net.branchCount; k++) net.powerRe[k] = net.powerRe[k]! * scale;
+        const outcome = (net: CompiledBoard['network']) => {
+          try {
+            net.solve();
+            return null;
+          } catch (error) {
+            return String(error);
+          }
+        };
+        expect(outcome(fast.network)).toBe(outcome(slow.network));
+        taken++;
+        expect([fast.network.method, fast.network.iterations, fast.network.lastChange]).toEqual([slow.network.method, slow.network.iterations, slow.network.lastChange]);
+        expect(Array.from(fast.network.voltageRe)).toEqual(Array.from(slow.network.voltageRe));
+        expect(Array.from(fast.network.voltageIm)).toEqual(Array.from(slow.network.voltageIm));
+        expect(Array.from(fast.network.admittanceRe)).toEqual(Array.from(slow.network.admittanceRe));
+        expect(Array.from(fast.network.admittanceIm)).toEqual(Array.from(slow.network.admittanceIm));
+      }),
+      { numRuns: 300 },
+    );
+    expect(taken).toBeGreaterThan(20);
   });
 
   it('on random boards: the same state, and a good share of them take the ports', () => {

@@ -48,7 +48,7 @@ const NEC_TABLE_8: readonly [{ awg: string } | { kcmil: number }, number, number
   [{ kcmil: 750 }, 0.0171, 0.0282], [{ kcmil: 800 }, 0.0161, 0.0265], [{ kcmil: 900 }, 0.0143, 0.0235], [{ kcmil: 1000 }, 0.0129, 0.0212],
 ];
 
-/** NEC Chapter 9 Table 9, XL for all wires, Ω/kft at 60 Hz: [size, PVC/Al conduit, steel conduit (not used: the library takes PVC)]. */
+/** NEC Chapter 9 Table 9, XL for all wires, Ω/kft at 60 Hz: [size, PVC/Al conduit, steel conduit]. */
 const NEC_TABLE_9_XL: readonly [{ awg: string } | { kcmil: number }, number, number][] = [
   [{ awg: '14' }, 0.058, 0.073], [{ awg: '12' }, 0.054, 0.068], [{ awg: '10' }, 0.05, 0.063], [{ awg: '8' }, 0.052, 0.065],
   [{ awg: '6' }, 0.051, 0.064], [{ awg: '4' }, 0.048, 0.06], [{ awg: '3' }, 0.047, 0.059], [{ awg: '2' }, 0.045, 0.057],
@@ -67,8 +67,13 @@ describe('cable reactance', () => {
     const x = conductorReactance(size, 60)!;
     expect(x.ohmPerKm).toBeCloseTo(pvc * kft, 12);
     expect(x.source).toContain('Table 9');
-    // The steel-conduit column is the higher one; the library states which it takes.
-    expect(steel).toBeGreaterThan(pvc);
+    expect(x.source).toContain('PVC or aluminium conduit');
+    const inSteel = conductorReactance(size, 60, 'steel')!;
+    expect(inSteel.ohmPerKm).toBeCloseTo(steel * kft, 12);
+    expect(inSteel.source).toContain('steel conduit');
+    // The steel wall adds 19–27 % to every row (a check on the transcription of both columns).
+    expect(steel / pvc).toBeGreaterThan(1.19);
+    expect(steel / pvc).toBeLessThan(1.27);
   });
   it.each(NEC_TABLE_9_XL_PER_KM)("NEC Table 9's Ω/km column, %s AWG: %s Ω/km, within the rounding of the two columns", (awg, perKm) => {
     // Each column rounded to 0.001 of its own unit: they may differ by 0.0005·kft + 0.0005 Ω/km.
@@ -78,6 +83,8 @@ describe('cable reactance', () => {
     expect(conductorReactance({ kcmil: 700 }, 60)!.ohmPerKm).toBeCloseTo((0.039 + (0.038 - 0.039) * (100 / 150)) * kft, 12);
     expect(conductorReactance({ kcmil: 800 }, 60)!.ohmPerKm).toBeCloseTo((0.038 + (0.037 - 0.038) * (50 / 250)) * kft, 12);
     expect(conductorReactance({ kcmil: 900 }, 60)!.source).toContain('interpolated');
+    // The steel column between 750 (0.048) and 1000 (0.046) kcmil.
+    expect(conductorReactance({ kcmil: 800 }, 60, 'steel')!.ohmPerKm).toBeCloseTo((0.048 + (0.046 - 0.048) * (50 / 250)) * kft, 12);
   });
   it('scales with frequency: Table 9 at 50 Hz is 5/6 of its 60 Hz value, the mm² default at 60 Hz 6/5 of 0.08', () => {
     expect(conductorReactance({ awg: '2' }, 50)!.ohmPerKm).toBeCloseTo((0.045 * kft * 5) / 6, 12);
@@ -165,22 +172,31 @@ describe('cable library against the published tables', () => {
     expect(result.feeders[1]!.lossesKW * 1000).toBeCloseTo(current * current * 0.524 * 0.05 * 1.5, 6);
     expect(result.feeders[1]!.description).toBe('35 mm² Cu, 50 m at 20 °C; neutral 35 mm² Cu ×2, 50 m at 20 °C');
   });
-  it('an AWG feeder on a 60 Hz board carries Table 8 resistance and Table 9 reactance times length', () => {
-    const result = solveInstallation({
+  /** A 120 V heater of 2 Ω on a board 200 ft from the main over 1/0 AWG copper line and neutral. */
+  const awgShop = (conduit?: 'steel') =>
+    solveInstallation({
       supply: { system: 'three-phase-4wire', voltage: { lineToNeutral: 120 }, frequencyHz: 60 },
       boards: [
         { name: 'Main', loads: [] },
         {
           name: 'Shop',
           fedFrom: 'Main',
-          feeder: { lengthFt: 200, line: { awg: '1/0' }, neutral: { awg: '1/0' } },
+          feeder: { lengthFt: 200, line: { awg: '1/0', ...(conduit && { conduit }) }, neutral: { awg: '1/0', ...(conduit && { conduit }) } },
           loads: [{ name: 'heater', connection: 'A-N', ohms: { r: 2, x: 0 } }],
         },
       ],
     });
+  it('an AWG feeder on a 60 Hz board carries Table 8 resistance and Table 9 reactance times length', () => {
     // Line and neutral in series: 2 × 0.2 kft × (0.122 Ω/kft at 75 °C + j0.044 Ω/kft).
     const r = 2 + 2 * 0.2 * 0.122;
     const x = 2 * 0.2 * 0.044;
+    expect(awgShop().feeders[1]!.lines[0]!.current.magnitude).toBeCloseTo(120 / Math.hypot(r, x), 9);
+  });
+  it("the same feeder in steel conduit takes Table 9's steel column (0.055 Ω/kft for 1/0) and says so", () => {
+    const result = awgShop('steel');
+    const r = 2 + 2 * 0.2 * 0.122;
+    const x = 2 * 0.2 * 0.055;
     expect(result.feeders[1]!.lines[0]!.current.magnitude).toBeCloseTo(120 / Math.hypot(r, x), 9);
+    expect(result.feeders[1]!.description).toContain('steel conduit');
   });
 });

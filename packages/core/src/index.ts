@@ -44,7 +44,7 @@ export { validateInstallation, parseInstallation } from './boardFile/validateIns
 export { isInstallationInput } from './board/installationInput.js';
 export { normaliseInstallation } from './board/normaliseInstallation.js';
 export type { FeederSpec, PerPhaseConductorSpec, WindingSpec } from './board/boardSchema.js';
-export type { ConductorMaterial, ConductorSize, ConductorResistance } from './board/cableLibrary.js';
+export type { ConductorMaterial, ConductorSize, ConductorResistance, ConductorReactance, ConduitKind } from './board/cableLibrary.js';
 export { conductorReactance, conductorResistance, DEFAULT_CABLE_REACTANCE_OHM_PER_KM, DEFAULT_CONDUCTOR_TEMPERATURE_C } from './board/cableLibrary.js';
 export { installationOf, boardOfInstallation } from './network/installationModel.js';
 export type { InstallationSolution, CompiledInstallation } from './network/solveNetwork.js';
@@ -189,7 +189,7 @@ export type { FixedInstallationInput } from './network/solveFixedInstallation.js
 export { solveFixedInstallation } from './network/solveFixedInstallation.js';
 export type { ScanEvaluator, ScanBank, BankState } from './harmonics/scanEvaluator.js';
 export type { JointScanOptions, NetworkState } from './harmonics/scanJointResonance.js';
-export { scanJointResonance, scanNetworkStates, controllerLevels } from './harmonics/scanJointResonance.js';
+export { scanJointResonance, scanNetworkStates, controllerLevels, switchingLevels } from './harmonics/scanJointResonance.js';
 export { scanResonance, createScanEvaluator, scanGrid, stepCombinations, roundForPlot, shortCircuitVA } from './harmonics/scanResonance.js';
 export { DUTY_LIMITS, dutyFigures } from './harmonics/capacitorDuty.js';
 export { dutyConditions, withCapacitanceFactor, withLoadsOff, withOtherBanksOff, conditionWords } from './harmonics/dutyConditions.js';
@@ -213,6 +213,8 @@ export { rebalanceBoard } from './rebalance/rebalanceBoard.js';
 export { rebalanceInstallation } from './rebalance/rebalanceInstallation.js';
 export { conditionsFromScenarios } from './rebalance/rebalanceRules.js';
 export { conditionsFromIntervals } from './rebalance/intervalConditions.js';
+export { conditionsFromInstallationIntervals } from './rebalance/installationIntervalConditions.js';
+export type { InstallationIntervalConditions } from './rebalance/installationIntervalConditions.js';
 export type { IntervalConditions, IntervalConditionOptions, IntervalPick, LoadConditionInput } from './rebalance/intervalConditions.js';
 export { rewriteInstallationText } from './rebalance/rewriteBoardText.js';
 export type * from './rebalance/rebalanceResult.js';

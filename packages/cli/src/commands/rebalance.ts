@@ -4,11 +4,13 @@ import { resolve } from 'node:path';
 import { availableParallelism } from 'node:os';
 import {
   checkIntervalSequence,
+  conditionsFromInstallationIntervals,
   conditionsFromIntervals,
   driverColumns,
   isKnownTimeZone,
   planColumns,
   planDrivers,
+  planInstallationColumns,
   InputError,
   isInstallationInput,
   normaliseBoard,
@@ -21,6 +23,9 @@ import {
   rewriteBoardText,
   type Board,
   type BoardSpec,
+  type Installation,
+  type InstallationIntervalConditions,
+  type InstallationSpec,
   type IntervalConditions,
   type RebalanceOptions,
   type RebalanceReport,
@@ -72,18 +77,30 @@ function sameFile(a: string, b: string): boolean {
   return sa.dev === sb.dev && sa.ino === sb.ino;
 }
 
-/** Interval data → representative intervals as load conditions (rule in core's intervalConditions.ts). */
-async function intervalConditions(spec: BoardSpec, board: Board, data: string, o: RebalanceCommandOptions): Promise<IntervalConditions> {
+/** The interval table of `data` read against a column plan, with the command's time zone and spread checked. */
+async function readIntervals<P extends Parameters<typeof planDrivers>[0]>(plan: P, data: string, o: RebalanceCommandOptions) {
   const zone = o.timeZone ?? 'UTC';
   if (!isKnownTimeZone(zone)) throw new UsageError(`--time-zone: "${zone}" is not a time zone this system knows (expected an IANA name such as Europe/Lisbon or America/Chicago)`);
   if (o.spread !== undefined && !(Number.isInteger(o.spread) && o.spread >= 0 && o.spread <= 50))
     throw new UsageError(`--spread: expected a whole number from 0 to 50 (received ${o.spread})`);
-  const plan = planColumns(board, readCsvHeader(data), spec.profile?.groups ? { groups: spec.profile.groups } : {});
   const raw = await readIntervalRows(data, plan, { timeZone: zone }, Math.min(2, availableParallelism()));
   const table = checkIntervalSequence(raw, 'none');
-  return conditionsFromIntervals(plan.board, planDrivers(plan), driverColumns(plan, table.values, table.count), table.utcMs, table.intervalMs, {
-    ...(o.spread !== undefined ? { spread: o.spread } : {}),
-  });
+  return { drivers: planDrivers(plan), columns: driverColumns(plan, table.values, table.count), table, spread: o.spread !== undefined ? { spread: o.spread } : {} };
+}
+
+/** Interval data → representative intervals as load conditions (rule in core's intervalConditions.ts). */
+async function intervalConditions(spec: BoardSpec, board: Board, data: string, o: RebalanceCommandOptions): Promise<IntervalConditions> {
+  const plan = planColumns(board, readCsvHeader(data), spec.profile?.groups ? { groups: spec.profile.groups } : {});
+  const { drivers, columns, table, spread } = await readIntervals(plan, data, o);
+  return conditionsFromIntervals(plan.board, drivers, columns, table.utcMs, table.intervalMs, spread);
+}
+
+/** The same on an installation: loads named per board (core's installationColumns.ts), each sub-board feeder's peak picked too. */
+async function installationIntervalConditions(spec: InstallationSpec, installation: Installation, data: string, o: RebalanceCommandOptions): Promise<InstallationIntervalConditions> {
+  const groups = (spec as { profile?: { groups?: Record<string, string[]> } }).profile?.groups;
+  const plan = planInstallationColumns(installation, readCsvHeader(data), groups ? { groups } : {});
+  const { drivers, columns, table, spread } = await readIntervals(plan, data, o);
+  return conditionsFromInstallationIntervals(installation, plan, drivers, columns, table.utcMs, table.intervalMs, spread);
 }
 
 export async function runRebalance(file: string, options: RebalanceCommandOptions, io: CliIo): Promise<RebalanceReport> {
@@ -100,10 +117,14 @@ export async function runRebalance(file: string, options: RebalanceCommandOption
   let report: RebalanceReport;
   try {
     if (isInstallationInput(input)) {
-      if (options.data !== undefined) throw new UsageError('--data: interval data drives one board; for an installation give load conditions in its rebalance section');
       const spec = parseInstallation(input);
       const study = studySpec(spec.rebalance as Record<string, unknown> | undefined, options);
-      report = rebalanceInstallation(normaliseInstallation(spec).installation, study, search);
+      const installation = normaliseInstallation(spec).installation;
+      if (options.data !== undefined) {
+        const picked = await installationIntervalConditions(spec, installation, options.data, options);
+        const { conditions: _c, ...rest } = study;
+        report = rebalanceInstallation(picked.installation, rest, { ...search, loadConditions: picked.conditions });
+      } else report = rebalanceInstallation(installation, study, search);
     } else {
       const spec = parseBoard(input);
       const study = studySpec(spec.rebalance as Record<string, unknown> | undefined, options);

@@ -153,7 +153,7 @@ export function dutyLines(d: CapacitorDuty, label: Label): string[] {
       ],
     ),
     prose(
-      `design = nominal capacitance, loads as given${d.conditions.some((c) => c.otherBanks) ? ', other banks on' : ''}; worst of every state at capacitance −${d.capacitanceTolerance.minusPercent} % / nominal / +${d.capacitanceTolerance.plusPercent} %, loads as given and all off${d.conditions.some((c) => c.otherBanks) ? ', other banks on and out of service' : ''}: ${d.worst.label}, ${conditionWords(d.worst.condition)}`,
+      `design = nominal capacitance, loads as given${d.conditions.some((c) => c.otherBanks) ? ', other banks on' : ''}; worst of every state at capacitance −${d.capacitanceTolerance.minusPercent} % / nominal / +${d.capacitanceTolerance.plusPercent} %, loads as given and all off${d.conditions.some((c) => c.otherBanks) ? ', other banks on, out of service and in any state the joint scan finds near a checked order' : ''}: ${d.worst.label}, ${conditionWords(d.worst.condition)}`,
     ),
     prose(`highest fundamental voltage across a capacitor: ${fixed(d.highestCapacitorVoltageV, 1)} V (${fixed(d.highestCapacitorVoltageV / d.ratedV, 3)} × rated)`),
     prose(`limits: ${d.limitsSource}`),

@@ -54,13 +54,16 @@ export function solveRealFactored(a: Float64Array, n: number, pivots: Int32Array
   }
 }
 
+/** The determinant floor of `invertReal3InPlace`, relative to the largest entry cubed. */
+export const REAL3_RELATIVE_PIVOT = 1e-13;
+
 /**
  * Inverse of a 3 × 3 real matrix in place, by cofactors (the commonest Newton step:
  * three loaded node pairs; no pivoting to do, and a third of the work of the LU and
  * its solve). Returns false, with `a` untouched, when the determinant is at most
  * `relativePivot` × the largest entry cubed, or not finite.
  */
-export function invertReal3InPlace(a: Float64Array, relativePivot = 1e-13): boolean {
+export function invertReal3InPlace(a: Float64Array, relativePivot = REAL3_RELATIVE_PIVOT): boolean {
   const a00 = a[0]!;
   const a01 = a[1]!;
   const a02 = a[2]!;

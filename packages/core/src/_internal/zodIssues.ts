@@ -5,6 +5,7 @@
  */
 import type { core, ZodType } from 'zod';
 import { formatPath, InputError, inputIssue, type InputIssue } from '../errors.js';
+import { ONE_SHOT_PARSE } from './oneShotParse.js';
 
 const DOCUMENTED_KEYS = 'only the documented keys (see the JSON Schema: `trivar schema`, or `trivar schema --installation`)';
 /** YAML 1.2 has no merge keys; read as 1.1 they would also change numbers (see readBoardText.ts). */
@@ -85,7 +86,7 @@ export function inputIssuesFromZod(issues: readonly core.$ZodIssue[], root: unkn
  * @throws {InputError}
  */
 export function parseOptions<T>(schema: ZodType<T>, input: unknown, what: string): T {
-  const parsed = schema.safeParse(input ?? {});
+  const parsed = schema.safeParse(input ?? {}, ONE_SHOT_PARSE);
   const issues = allInputIssues(parsed.success ? [] : parsed.error.issues, input);
   if (!parsed.success || issues.length) throw new InputError(issues, `${what} are not valid`);
   return parsed.data;

@@ -51,6 +51,8 @@ export const LOAD_MODELS = ['constant-impedance', 'constant-current', 'constant-
 export const FREQUENCIES_HZ = [50, 60] as const;
 export const PHASE_SEQUENCES = ['ABC', 'ACB'] as const;
 export const CONDUCTOR_MATERIALS = ['copper', 'aluminium', 'aluminum'] as const;
+/** The raceway columns of NEC Table 9's reactance: PVC or aluminium conduit (`non-magnetic`), or `steel` conduit. */
+export const CONDUIT_KINDS = ['non-magnetic', 'steel'] as const;
 export const STAR_POINTS = ['neutral', 'floating'] as const;
 export const PF_SENSES = ['lagging', 'leading'] as const;
 export const BREAKER_POLES = [1, 2, 3] as const;

@@ -73,6 +73,11 @@ function conductorIssues(conductor: ConductorSpec | undefined, path: string, fee
   if (size && conductor.rOhmPerKm !== undefined) issues.push(inputIssue('conflict', path, 'either a size from the cable library or rOhmPerKm, not both', 'both'));
   if (!size && (conductor.material !== undefined || conductor.temperatureC !== undefined))
     issues.push(inputIssue('not_applicable', conductor.material !== undefined ? `${path}.material` : `${path}.temperatureC`, 'material and temperatureC only with a size (mm2, awg or kcmil)', conductor.material ?? conductor.temperatureC));
+  // Table 9's raceway columns are for AWG/kcmil sizes; a stated reactance already says what the raceway does.
+  if (conductor.conduit !== undefined && (!size || 'mm2' in size))
+    issues.push(inputIssue('not_applicable', `${path}.conduit`, 'conduit only with an AWG or kcmil size (NEC Chapter 9 Table 9); give xOhmPerKm for a metric cable', conductor.conduit));
+  else if (conductor.conduit !== undefined && conductor.xOhmPerKm !== undefined)
+    issues.push(inputIssue('conflict', path, 'either xOhmPerKm or conduit (which picks the NEC Table 9 reactance), not both', 'both'));
   if (size && sizes === 1 && !conductorResistance(size, materialOf(conductor))) {
     const field = 'mm2' in size ? 'mm2' : 'awg' in size ? 'awg' : 'kcmil';
     const metal = materialOf(conductor);

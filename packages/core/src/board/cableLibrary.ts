@@ -18,9 +18,11 @@
  * give r directly where that matters).
  *
  * Reactance (see conductorReactance): AWG/kcmil sizes take NEC Chapter 9 Table 9's
- * "XL (reactance) for all wires" in PVC or aluminium conduit, 60 Hz; mm² sizes 0.08 Ω/km
- * at 50 Hz, typical of multicore LV cable. Both scale with the supply frequency.
+ * "XL (reactance) for all wires" in PVC or aluminium conduit, or in steel conduit where the
+ * conductor says so, 60 Hz; mm² sizes 0.08 Ω/km at 50 Hz, typical of multicore LV cable. Both
+ * scale with the supply frequency.
  */
+import type { CONDUIT_KINDS } from './boardRanges.js';
 
 export type ConductorMaterial = 'copper' | 'aluminium';
 
@@ -70,19 +72,29 @@ const DEFAULT_CABLE_REACTANCE_HZ = 50;
 
 /**
  * NEC Chapter 9 Table 9 (600 V cables, three single conductors in conduit, 60 Hz, 75 °C),
- * "XL (reactance) for all wires", PVC and aluminium conduits column (non-magnetic raceway; the
- * steel-conduit column is about 25 % higher), Ω to neutral per 1000 ft. Each value checked against
- * two published reproductions of the table (sfasoft.com "A.C. for 600 Volt"; studylib "AC Resistance
- * and Reactance", NEC Table 9), and 14 AWG–350 kcmil a third (brunsengineering.com "NEC Table 9").
- * Table 9 has no 700, 800 or 900 kcmil row: those are interpolated linearly in kcmil between the
- * neighbouring rows (600/750 and 750/1000), marked so in the source words.
+ * "XL (reactance) for all wires", Ω to neutral per 1000 ft, by raceway: PVC and aluminium conduits
+ * (non-magnetic) and steel conduit (about 25 % higher: the steel wall adds flux linkage). Each value
+ * checked against two published reproductions of the table (sfasoft.com "A.C. for 600 Volt"; studylib
+ * "AC Resistance and Reactance", NEC Table 9), and 14 AWG–350 kcmil a third (brunsengineering.com
+ * "NEC Table 9"). Table 9 has no 700, 800 or 900 kcmil row: those are interpolated linearly in kcmil
+ * between the neighbouring rows (600/750 and 750/1000), marked so in the source words.
  */
-const NEC_TABLE_9_XL_PVC_OHM_PER_KFT: Readonly<Record<string, number>> = {
-  '14': 0.058, '12': 0.054, '10': 0.05, '8': 0.052, '6': 0.051, '4': 0.048, '3': 0.047, '2': 0.045, '1': 0.046,
-  '1/0': 0.044, '2/0': 0.043, '3/0': 0.042, '4/0': 0.041,
-  '250 kcmil': 0.041, '300 kcmil': 0.041, '350 kcmil': 0.04, '400 kcmil': 0.04, '500 kcmil': 0.039,
-  '600 kcmil': 0.039, '750 kcmil': 0.038, '1000 kcmil': 0.037,
+const NEC_TABLE_9_XL_OHM_PER_KFT: Readonly<Record<ConduitKind, Readonly<Record<string, number>>>> = {
+  'non-magnetic': {
+    '14': 0.058, '12': 0.054, '10': 0.05, '8': 0.052, '6': 0.051, '4': 0.048, '3': 0.047, '2': 0.045, '1': 0.046,
+    '1/0': 0.044, '2/0': 0.043, '3/0': 0.042, '4/0': 0.041,
+    '250 kcmil': 0.041, '300 kcmil': 0.041, '350 kcmil': 0.04, '400 kcmil': 0.04, '500 kcmil': 0.039,
+    '600 kcmil': 0.039, '750 kcmil': 0.038, '1000 kcmil': 0.037,
+  },
+  steel: {
+    '14': 0.073, '12': 0.068, '10': 0.063, '8': 0.065, '6': 0.064, '4': 0.06, '3': 0.059, '2': 0.057, '1': 0.057,
+    '1/0': 0.055, '2/0': 0.054, '3/0': 0.052, '4/0': 0.051,
+    '250 kcmil': 0.052, '300 kcmil': 0.051, '350 kcmil': 0.05, '400 kcmil': 0.049, '500 kcmil': 0.048,
+    '600 kcmil': 0.048, '750 kcmil': 0.048, '1000 kcmil': 0.046,
+  },
 };
+export type ConduitKind = (typeof CONDUIT_KINDS)[number];
+const CONDUIT_WORDS: Record<ConduitKind, string> = { 'non-magnetic': 'PVC or aluminium conduit', steel: 'steel conduit' };
 const NEC_TABLE_9_HZ = 60;
 const TABLE_9_KCMIL = [250, 300, 350, 400, 500, 600, 750, 1000];
 
@@ -94,34 +106,36 @@ export interface ConductorReactance {
 }
 
 /** Table 9's reactance of a kcmil size, Ω/kft: its row, or the line between the neighbouring rows. */
-function table9Kcmil(kcmil: number): { value: number; interpolated: boolean } | null {
-  const own = NEC_TABLE_9_XL_PVC_OHM_PER_KFT[`${kcmil} kcmil`];
+function table9Kcmil(column: Readonly<Record<string, number>>, kcmil: number): { value: number; interpolated: boolean } | null {
+  const own = column[`${kcmil} kcmil`];
   if (own !== undefined) return { value: own, interpolated: false };
   const above = TABLE_9_KCMIL.findIndex((k) => k > kcmil);
   if (above <= 0) return null;
   const lo = TABLE_9_KCMIL[above - 1]!;
   const hi = TABLE_9_KCMIL[above]!;
-  const xLo = NEC_TABLE_9_XL_PVC_OHM_PER_KFT[`${lo} kcmil`]!;
-  const xHi = NEC_TABLE_9_XL_PVC_OHM_PER_KFT[`${hi} kcmil`]!;
+  const xLo = column[`${lo} kcmil`]!;
+  const xHi = column[`${hi} kcmil`]!;
   return { value: xLo + ((xHi - xLo) * (kcmil - lo)) / (hi - lo), interpolated: true };
 }
 
 /**
  * The reactance a library conductor takes when the file gives no `xOhmPerKm`, at `frequencyHz`
- * (X ∝ f): NEC Chapter 9 Table 9 for AWG/kcmil sizes, DEFAULT_CABLE_REACTANCE_OHM_PER_KM for mm².
- * Null for an AWG size outside Table 9's range.
+ * (X ∝ f): NEC Chapter 9 Table 9 for AWG/kcmil sizes in the given raceway (default PVC or aluminium
+ * conduit), DEFAULT_CABLE_REACTANCE_OHM_PER_KM for mm² (which `conduit` does not change: the rules
+ * refuse the pair). Null for an AWG size outside Table 9's range.
  */
-export function conductorReactance(size: ConductorSize, frequencyHz: number): ConductorReactance | null {
+export function conductorReactance(size: ConductorSize, frequencyHz: number, conduit: ConduitKind = 'non-magnetic'): ConductorReactance | null {
   if ('mm2' in size)
     return {
       ohmPerKm: (DEFAULT_CABLE_REACTANCE_OHM_PER_KM * frequencyHz) / DEFAULT_CABLE_REACTANCE_HZ,
       source: `${DEFAULT_CABLE_REACTANCE_OHM_PER_KM} Ω/km at ${DEFAULT_CABLE_REACTANCE_HZ} Hz, typical of multicore LV cable (common practice)`,
     };
-  const row = 'awg' in size ? (NEC_TABLE_9_XL_PVC_OHM_PER_KFT[size.awg] === undefined ? null : { value: NEC_TABLE_9_XL_PVC_OHM_PER_KFT[size.awg]!, interpolated: false }) : table9Kcmil(size.kcmil);
+  const column = NEC_TABLE_9_XL_OHM_PER_KFT[conduit];
+  const row = 'awg' in size ? (column[size.awg] === undefined ? null : { value: column[size.awg]!, interpolated: false }) : table9Kcmil(column, size.kcmil);
   if (!row) return null;
   return {
     ohmPerKm: ((row.value * FEET_PER_KM) / 1000) * (frequencyHz / NEC_TABLE_9_HZ),
-    source: `NEC Chapter 9 Table 9, PVC or aluminium conduit, ${row.interpolated ? 'interpolated between the neighbouring sizes' : `${row.value} Ω/kft`} at ${NEC_TABLE_9_HZ} Hz`,
+    source: `NEC Chapter 9 Table 9, ${CONDUIT_WORDS[conduit]}, ${row.interpolated ? 'interpolated between the neighbouring sizes' : `${row.value} Ω/kft`} at ${NEC_TABLE_9_HZ} Hz`,
   };
 }
 /** Operating temperature assumed when none is given, °C: the usual PVC limit for metric sizes, the NEC table's own for AWG. */

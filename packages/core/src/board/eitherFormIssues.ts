@@ -9,6 +9,7 @@
 import type * as z from 'zod';
 import type { core } from 'zod';
 import { conductorSchema, impedanceSchema, perPhaseConductorSchema, perPhaseImpedanceSchema } from './boardSchema.js';
+import { ONE_SHOT_PARSE } from '../_internal/oneShotParse.js';
 
 /** Where a value may take either form, by the end of its path, and its two forms. */
 const EITHER_FORM: readonly { readonly at: (path: readonly PropertyKey[]) => boolean; readonly flat: z.ZodType; readonly perPhase: z.ZodType }[] = [
@@ -32,7 +33,7 @@ export function eitherFormIssues(issues: readonly core.$ZodIssue[], input: unkno
     const value = valueAt(input, issue.path);
     if (!form || value === undefined) return [issue];
     const schema = isObject(value) && ['A', 'B', 'C'].some((k) => k in value) ? form.perPhase : form.flat;
-    const own = schema.safeParse(value);
+    const own = schema.safeParse(value, ONE_SHOT_PARSE);
     return own.success ? [issue] : own.error.issues.map((i) => ({ ...i, path: [...issue.path, ...i.path] }));
   });
 }

@@ -39,7 +39,7 @@ export function conductorImpedance(c: ConductorSpec | undefined, feeder: FeederS
   const size = sizeOf(c);
   if (size && length !== null) {
     const r = conductorResistance(size, materialOf(c), c.temperatureC);
-    const x = c.xOhmPerKm ?? conductorReactance(size, frequencyHz)?.ohmPerKm ?? Number.NaN;
+    const x = c.xOhmPerKm ?? conductorReactance(size, frequencyHz, c.conduit)?.ohmPerKm ?? Number.NaN;
     z = complex(((r?.ohmPerKm ?? Number.NaN) * length) / 1000, (x * length) / 1000);
   } else if (c.rOhmPerKm !== undefined && length !== null) {
     z = complex((c.rOhmPerKm * length) / 1000, ((c.xOhmPerKm ?? 0) * length) / 1000);
@@ -57,7 +57,8 @@ export function describeConductor(c: ConductorSpec | undefined, feeder: FeederSp
   const metal = materialOf(c) === 'copper' ? 'Cu' : 'Al';
   const set = (c.parallel ?? 1) > 1 ? ` ×${c.parallel}` : '';
   const len = length === null ? '' : c.lengthFt !== undefined || (c.lengthM === undefined && feeder?.lengthFt !== undefined) ? `, ${Math.round(length / METRES_PER_FOOT)} ft` : `, ${+length.toFixed(1)} m`;
-  return `${r?.label ?? '?'} ${metal}${set}${len} at ${r ? +r.temperatureC.toFixed(1) : '?'} °C`;
+  const raceway = c.conduit === 'steel' ? ', steel conduit' : '';
+  return `${r?.label ?? '?'} ${metal}${set}${len} at ${r ? +r.temperatureC.toFixed(1) : '?'} °C${raceway}`;
 }
 
 export interface FeederModel {

@@ -11,6 +11,7 @@ import { feederSchema, supplySchema, type BoardBaseSpec, type LoadBaseSpec } fro
 import { partialBoardIssues, type BoardRule } from './boardRules.js';
 import { readTradeSpellings } from './conventions/readTradeSpellings.js';
 import { inFileNaming } from './conventions/issueNaming.js';
+import { ONE_SHOT_PARSE } from '../_internal/oneShotParse.js';
 
 /** What a board file is checked against: its schema, one load's schema and the rules, in order. */
 export interface BoardFileChecks<T extends BoardBaseSpec> {
@@ -37,7 +38,7 @@ export function validateBoardWith<T extends BoardBaseSpec>(checks: BoardFileChec
   // issues then point back at the file as written.
   const spelt = readTradeSpellings(input);
   const naming = spelt.spellings.naming;
-  const parsed = checks.schema.safeParse(spelt.input);
+  const parsed = checks.schema.safeParse(spelt.input, ONE_SHOT_PARSE);
   const shapeIssues = allInputIssues(parsed.success ? [] : eitherFormIssues(parsed.error.issues, spelt.input), spelt.input);
   if (parsed.success && shapeIssues.length === 0) {
     const issues = [...spelt.issues, ...inFileNaming(checks.rules.flatMap((rule) => rule(parsed.data)), naming)];
@@ -49,9 +50,9 @@ export function validateBoardWith<T extends BoardBaseSpec>(checks: BoardFileChec
 /** Each part of a board that passes the schema on its own (for the rules that can still run). */
 function boardParts(input: unknown, loadSchema: z.ZodType<LoadBaseSpec>) {
   const raw = (input !== null && typeof input === 'object' ? input : {}) as Record<string, unknown>;
-  const supply = supplySchema.safeParse(raw.supply);
-  const feeder = raw.feeder === undefined ? undefined : feederSchema.safeParse(raw.feeder);
-  const loads = Array.isArray(raw.loads) ? raw.loads.map((load) => loadSchema.safeParse(load)) : [];
+  const supply = supplySchema.safeParse(raw.supply, ONE_SHOT_PARSE);
+  const feeder = raw.feeder === undefined ? undefined : feederSchema.safeParse(raw.feeder, ONE_SHOT_PARSE);
+  const loads = Array.isArray(raw.loads) ? raw.loads.map((load) => loadSchema.safeParse(load, ONE_SHOT_PARSE)) : [];
   return {
     supply: supply.success ? supply.data : null,
     feeder: feeder === undefined ? undefined : feeder.success ? feeder.data : null,

@@ -13,6 +13,7 @@ import { validateBoardWith, type BoardFileChecks } from './validateBoardWith.js'
 import { readTradeSpellings } from './conventions/readTradeSpellings.js';
 import { isInstallationInput } from './installationInput.js';
 import { inFileNaming } from './conventions/issueNaming.js';
+import { ONE_SHOT_PARSE } from '../_internal/oneShotParse.js';
 
 /** What an installation file is checked against, and how a board file becomes one. */
 export interface InstallationFileChecks<I extends InstallationBaseSpec, B extends BoardBaseSpec> {
@@ -53,7 +54,7 @@ export function validateInstallationWith<I extends InstallationBaseSpec, B exten
   }
   const spelt = readTradeSpellings(input);
   const naming = spelt.spellings.naming;
-  const parsed = checks.schema.safeParse(spelt.input);
+  const parsed = checks.schema.safeParse(spelt.input, ONE_SHOT_PARSE);
   if (!parsed.success) return { ok: false, issues: [...spelt.issues, ...inFileNaming(inputIssuesFromZod(eitherFormIssues(parsed.error.issues, spelt.input), spelt.input), naming)] };
   const issues = [...spelt.issues, ...inFileNaming(checks.rules.flatMap((rule) => rule(parsed.data)), naming)];
   return issues.length ? { ok: false, issues } : { ok: true, installation: parsed.data };

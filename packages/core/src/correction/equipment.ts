@@ -58,6 +58,15 @@ export function deltaSlots(board: Board): BranchSlot[] {
 export const susceptanceFromKvar = (kvar: number, v: number): number => (kvar * 1000) / (v * v);
 export const kvarFromSusceptance = (susceptanceS: number, v: number): number => (susceptanceS * v * v) / 1000;
 
+/**
+ * Below a microvar an element is rounding left by the iterations, not equipment: it is
+ * dropped (0), so an all-but-empty floating star does not leave a node hanging on nothing.
+ */
+export const cleanSusceptance = (susceptanceS: number, v: number): number => (Math.abs(susceptanceS) * v * v < 1e-6 ? 0 : susceptanceS);
+
+/** The power a branch of susceptance `susceptanceS` at nominal voltage `v` is given as a load, VA (load convention: S = V²·conj(jB) = −jB·V²). */
+export const equipmentPower = (susceptanceS: number, v: number): { re: number; im: number } => ({ re: 0, im: -susceptanceS * v * v });
+
 export interface EquipmentGroupOptions {
   /** The part left connected at light load, S, per slot. @defaultValue the susceptances */
   readonly fixedSusceptances?: readonly number[];
@@ -74,9 +83,7 @@ export interface EquipmentGroupOptions {
 export function equipmentGroups(name: string, slots: readonly BranchSlot[], susceptances: readonly number[], options: EquipmentGroupOptions = {}): EquipmentGroup[] {
   const fixedSusceptances = options.fixedSusceptances ?? susceptances;
   const naming = options.naming ?? 'A/B/C';
-  // Below a microvar an element is rounding left by the iterations, not equipment:
-  // drop it, so an all-but-empty floating star does not leave a node hanging on nothing.
-  const clean = (b: number, v: number) => (Math.abs(b) * v * v < 1e-6 ? 0 : b);
+  const clean = cleanSusceptance;
   const branches = slots.map(
     (s, i): EquipmentBranch => ({ ...s, susceptanceS: clean(susceptances[i]!, s.vNominal), fixedSusceptanceS: clean(fixedSusceptances[i]!, s.vNominal) }),
   );
@@ -130,11 +137,10 @@ export function addCorrectionEquipment(board: Board, groups: readonly EquipmentG
       branches: group.branches.map((b) => {
         const raw = state === 'design' ? b.susceptanceS : b.fixedSusceptanceS;
         const susceptance = raw > 0 ? raw * factor : raw;
-        // An admittance jB draws S = V²·conj(jB) = −jB·V² (load convention).
         return {
           from: b.from,
           to: b.to === 'star' ? star : b.to,
-          sNominal: { re: 0, im: -susceptance * b.vNominal * b.vNominal },
+          sNominal: equipmentPower(susceptance, b.vNominal),
           vNominal: b.vNominal,
           zip: { z: 1, i: 0, p: 0 },
         };

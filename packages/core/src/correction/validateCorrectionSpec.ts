@@ -8,6 +8,7 @@ import { InputError, type InputIssue } from '../errors.js';
 import { correctionSpecSchema, type CorrectionSpec } from './correctionSpec.js';
 import { CORRECTION_RULES } from './correctionRules.js';
 import { allInputIssues } from '../_internal/zodIssues.js';
+import { ONE_SHOT_PARSE } from '../_internal/oneShotParse.js';
 
 export type CorrectionSpecValidation = { ok: true; spec: CorrectionSpec } | { ok: false; issues: InputIssue[] };
 
@@ -16,7 +17,7 @@ export type CorrectionSpecValidation = { ok: true; spec: CorrectionSpec } | { ok
  * @returns `{ ok: true, spec }` or `{ ok: false, issues }` with every problem and its field path.
  */
 export function validateCorrectionSpec(input: unknown, board: Board): CorrectionSpecValidation {
-  const parsed = correctionSpecSchema.safeParse(input);
+  const parsed = correctionSpecSchema.safeParse(input, ONE_SHOT_PARSE);
   const shapeIssues = allInputIssues(parsed.success ? [] : parsed.error.issues, input);
   if (!parsed.success || shapeIssues.length) return { ok: false, issues: shapeIssues };
   const issues = CORRECTION_RULES.flatMap((rule) => rule(parsed.data, board));

@@ -7,6 +7,7 @@ import { Speller } from '../board/conventions/readTradeSpellings.js';
 import { inFileNaming } from '../board/conventions/issueNaming.js';
 import { labellerOf, type PhaseNaming } from '../board/conventions/phaseNames.js';
 import { conventionsOf } from '../board/conventions/boardConventions.js';
+import { ONE_SHOT_PARSE } from '../_internal/oneShotParse.js';
 
 type Obj = Record<string, unknown>;
 const isObj = (x: unknown): x is Obj => typeof x === 'object' && x !== null && !Array.isArray(x);
@@ -56,7 +57,7 @@ function boardRules(spec: HandFiguresSpec, board: Board): InputIssue[] {
  */
 export function parseHandFigures(input: unknown, board: Board): HandFiguresSpec {
   const spelt = readFigureSpellings(input);
-  const parsed = handFiguresSchema.safeParse(spelt.input);
+  const parsed = handFiguresSchema.safeParse(spelt.input, ONE_SHOT_PARSE);
   const issues = [...spelt.issues, ...(parsed.success ? boardRules(parsed.data, board) : inputIssuesFromZod(parsed.error.issues, spelt.input))];
   // Paths point at the figures as written (expected.lines.L2, not .B).
   if (issues.length || !parsed.success) throw new InputError(inFileNaming(issues, spelt.naming), 'the hand figures are not valid');

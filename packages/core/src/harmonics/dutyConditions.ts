@@ -32,11 +32,16 @@ export function withInstallationLoadsOff(installation: Installation): Installati
 
 /** Every bank part of the boards other than `b` off (`banks`: per board, its bank's load numbers). */
 export function withOtherBanksOff(installation: Installation, banks: readonly (readonly number[])[], b: number): Installation {
-  const off = (c: number, loads: readonly BoardLoad[]) => {
-    const parts = new Set(c === b ? [] : banks[c]!);
+  return withPartsOff(installation, banks.map((parts, c) => (c === b ? [] : parts)));
+}
+
+/** The bank parts `off[c]` (load numbers of board c) switched off: their branches draw nothing. */
+export function withPartsOff(installation: Installation, off: readonly (readonly number[])[]): Installation {
+  const switched = (c: number, loads: readonly BoardLoad[]) => {
+    const parts = new Set(off[c] ?? []);
     return parts.size === 0 ? loads : loads.map((l, i): BoardLoad => (parts.has(i) ? { ...l, branches: l.branches.map((x) => ({ ...x, sNominal: { re: 0, im: 0 } })) } : l));
   };
-  return { ...installation, main: { ...installation.main, loads: off(0, installation.main.loads) }, subBoards: installation.subBoards.map((sb, i) => ({ ...sb, loads: off(i + 1, sb.loads) })) };
+  return { ...installation, main: { ...installation.main, loads: switched(0, installation.main.loads) }, subBoards: installation.subBoards.map((sb, i) => ({ ...sb, loads: switched(i + 1, sb.loads) })) };
 }
 
 const loadsOff = (loads: readonly BoardLoad[]): BoardLoad[] =>
@@ -70,6 +75,6 @@ export function withCapacitanceFactor(board: Board, model: HarmonicModel, factor
 export function conditionWords(c: DutyCondition): string {
   const deviation = c.capacitancePercent - 100;
   const capacitance = deviation === 0 ? 'nominal capacitance' : `capacitance ${deviation > 0 ? '+' : '−'}${Math.abs(Number(deviation.toFixed(2)))} %`;
-  const others = c.otherBanks === undefined ? '' : c.otherBanks === 'off' ? ', other banks out of service' : ', other banks on';
+  const others = c.otherBanks === undefined ? '' : c.otherBanks === 'off' ? ', other banks out of service' : c.otherBanks === 'switched' ? `, ${c.otherBanksState}` : ', other banks on';
   return `${capacitance}, ${c.loads === 'off' ? 'every load off' : 'loads as given'}${others}`;
 }

@@ -168,10 +168,11 @@ export interface JointScan {
   /** Each other bank's board and the levels it was scanned at (lowest first). */
   readonly otherBanks: readonly { readonly board: string; readonly levels: readonly OtherBankLevel[] }[];
   /**
-   * How the other banks' states were chosen: every level a controller steps each through, combined;
-   * above `stateLimit` networks each at its extremes (off or fully on); above it again all together.
+   * How the other banks' states were chosen: every state of each one's steps (any switching order),
+   * combined; above `stateLimit` networks every level a controller reaches stepping in the written
+   * order; above it again each at its extremes (off or fully on); above that all together.
    */
-  readonly coverage: 'controller levels' | 'each off or fully on' | 'all off or all on together';
+  readonly coverage: 'every step combination' | 'controller levels' | 'each off or fully on' | 'all off or all on together';
   /** Distinct networks scanned (this bank's distinct states × the other banks' states). */
   readonly networkStates: number;
   readonly stateLimit: number;
@@ -205,8 +206,12 @@ export interface DutyCondition {
   readonly capacitancePercent: number;
   /** `as given`: the board's loads as in the file; `off`: every load off, the highest voltage a bank on a lagging board sees. */
   readonly loads: 'as given' | 'off';
-  /** On an installation with other banks: whether they are all fully on or all out of service. */
-  readonly otherBanks?: 'on' | 'off';
+  /**
+   * On an installation with other banks: all fully on, all out of service, or `switched` to the
+   * state (`otherBanksState`, in words) at which the joint scan found a peak nearest a checked order.
+   */
+  readonly otherBanks?: 'on' | 'off' | 'switched';
+  readonly otherBanksState?: string;
 }
 
 export interface DutyCase {

@@ -59,12 +59,13 @@ export const bankStateWords = (board: string, label: string): string => `${board
 
 /** What a joint scan covered, in words: each other bank's levels and how they were chosen. */
 export function jointCoverageWords(joint: JointScan): string {
-  const how =
-    joint.coverage === 'controller levels'
-      ? 'every level a controller steps each through, combined'
-      : joint.coverage === 'each off or fully on'
-        ? `each only off or fully on: their levels combined would pass ${joint.stateLimit} networks`
-        : `only all off together and all fully on together: their levels combined would pass ${joint.stateLimit} networks`;
+  const passing = `their states combined would pass ${joint.stateLimit} networks`;
+  const how = {
+    'every step combination': 'every state of their steps, whatever order they switch in, combined',
+    'controller levels': `each stepped in the order its steps are written: ${passing}`,
+    'each off or fully on': `each only off or fully on: ${passing}`,
+    'all off or all on together': `only all off together and all fully on together: ${passing}`,
+  }[joint.coverage];
   return `other banks scanned at ${joint.otherBanks.map((o) => `${o.board}: ${o.levels.map((l) => l.label).join(', ')}`).join('; ')} (${how}; ${joint.networkStates} networks)`;
 }
 
@@ -74,11 +75,16 @@ export const nearestWords = (n: { readonly order: number; readonly checkedOrder:
 
 export const harmonicsAssumptionText = {
   jointScan:
-    'each bank’s scan is repeated with the other banks switched: every combination of its own steps with each other bank at every level a controller steps it through (off, step 1, steps 1+2, … in the order its steps are written; out of service and fixed part only where it has a fixed part), all combined; other orders of switching their steps are not scanned',
+    'each bank’s scan is repeated with the other banks switched: every combination of its own steps with each other bank in every state of its steps, whatever order a controller switches them in (out of service and fixed part only where it has a fixed part), all combined',
+  /** Only for a scan that did not cover every state (coverage other than 'every step combination'). */
   jointScanReduced: (board: string, joint: JointScan) =>
-    `${board}: the other banks’ levels combined would make more than ${joint.stateLimit} networks, so they were scanned ${
-      joint.coverage === 'each off or fully on' ? 'each only off (out of service) or fully on' : 'only all off together and all fully on together'
-    } (${joint.networkStates} networks); intermediate levels are not covered`,
+    `${board}: every state of the other banks’ steps combined would make more than ${joint.stateLimit} networks, so they were scanned ${
+      joint.coverage === 'controller levels'
+        ? 'at the levels a controller reaches stepping in the order the steps are written (off, step 1, steps 1+2, …); other switching orders are'
+        : joint.coverage === 'each off or fully on'
+          ? 'each only off (out of service) or fully on; intermediate levels are'
+          : 'only all off together and all fully on together; intermediate levels are'
+    } not covered (${joint.networkStates} networks)`,
 };
 
 /** Shown with every harmonics study, in the region's words ("earth" or "ground"). */

@@ -6,12 +6,13 @@
  * may sit on one of them with another bank partly or wholly off.
  *
  * The states: every combination of this bank's steps (as scanResonance), times
- * each other bank at each level an automatic controller reaches stepping it in
- * the order its steps are written (off, step 1, steps 1+2, …; with a fixed part:
- * out of service, fixed part only, fixed + step 1, …), every other bank
- * combined. Electrically identical levels are one level. Above `stateLimit`
- * networks the other banks are taken at their extremes only (each off or fully
- * on), and above it again all together off or all on; the result says which.
+ * each other bank in every state its parts can take, whatever order a controller
+ * switches them in (rotating or combining steps; with a fixed part also out of
+ * service and fixed part only), every other bank combined. Electrically identical
+ * states are one state. Above `stateLimit` networks each other bank is taken at
+ * the levels a controller reaches stepping in the order its steps are written
+ * (off, step 1, steps 1+2, …); above it again at its extremes only (each off or
+ * fully on), and above that all together off or all on; the result says which.
  */
 import type { Board } from '../board/boardModel.js';
 import { InputError, inputIssue } from '../errors.js';
@@ -29,20 +30,41 @@ interface Level extends BankState {
   readonly capacitorKvar: number;
 }
 
-/** The distinct levels a controller steps a bank through, lowest first (out of service first where it has a fixed part). */
-export function controllerLevels(board: Board, bank: BankModel): Level[] {
-  const n = bank.stepLoads.length;
-  const stepped = Array.from({ length: n + 1 }, (_, on) => Array.from({ length: n }, (_, k) => k < on));
-  const levels: Level[] = bank.fixedLoad === null ? [] : [{ steps: stepped[0]!, fixedOn: false, label: 'out of service', capacitorKvar: 0 }];
+/** A bank's level from its steps, its fixed part on. */
+function levelOf(board: Board, bank: BankModel, steps: boolean[]): Level {
+  const words = combinationLabel(bank, steps);
+  return { steps, fixedOn: true, label: words === 'bank off' ? 'off' : words, capacitorKvar: bankKvarOn(board, bank, steps) };
+}
+
+/** Keeps the first of electrically identical step sets (stateKey), out of service first where the bank has a fixed part. */
+function distinctLevels(board: Board, bank: BankModel, stepSets: readonly boolean[][]): Level[] {
+  const levels: Level[] = bank.fixedLoad === null ? [] : [{ steps: stepSets[0]!.map(() => false), fixedOn: false, label: 'out of service', capacitorKvar: 0 }];
   const seen = new Set<string>();
-  for (const steps of stepped) {
+  for (const steps of stepSets) {
     const key = stateKey(board, bank, steps);
     if (seen.has(key)) continue;
     seen.add(key);
-    const words = combinationLabel(bank, steps);
-    levels.push({ steps, fixedOn: true, label: words === 'bank off' ? 'off' : words, capacitorKvar: bankKvarOn(board, bank, steps) });
+    levels.push(levelOf(board, bank, steps));
   }
   return levels;
+}
+
+/** The distinct levels a controller steps a bank through in the written order, lowest first (out of service first where it has a fixed part). */
+export function controllerLevels(board: Board, bank: BankModel): Level[] {
+  const n = bank.stepLoads.length;
+  return distinctLevels(board, bank, Array.from({ length: n + 1 }, (_, on) => Array.from({ length: n }, (_, k) => k < on)));
+}
+
+/**
+ * Every distinct state of a bank's parts, whatever order its steps are switched in, least
+ * capacitance first (out of service first, then off or the fixed part alone; ties in the
+ * order stepCombinations gives). The first is everything off, the last everything on.
+ */
+export function switchingLevels(board: Board, bank: BankModel): Level[] {
+  return distinctLevels(board, bank, stepCombinations(bank.stepLoads.length))
+    .map((level, k) => ({ level, k }))
+    .sort((a, b) => a.level.capacitorKvar - b.level.capacitorKvar || a.k - b.k)
+    .map(({ level }) => level);
 }
 
 export interface JointScanOptions {
@@ -83,13 +105,19 @@ function product<T>(lists: readonly (readonly T[])[]): T[][] {
   return lists.reduce<T[][]>((acc, list) => acc.flatMap((prefix) => list.map((x) => [...prefix, x])), [[]]);
 }
 
-/** The other banks' states to scan and how they were chosen, within the limit where it can be. */
-function otherStates(levels: readonly (readonly Level[])[], ownStates: number, limit: number): { states: Level[][]; coverage: JointScan['coverage'] } {
+/** The other banks' states to scan, the levels they come from and how they were chosen, within the limit where it can be. */
+function otherStates(
+  every: readonly (readonly Level[])[],
+  ordered: readonly (readonly Level[])[],
+  ownStates: number,
+  limit: number,
+): { states: Level[][]; levels: readonly (readonly Level[])[]; coverage: JointScan['coverage'] } {
   const count = (lists: readonly (readonly Level[])[]) => lists.reduce((n, l) => n * l.length, ownStates);
-  if (count(levels) <= limit) return { states: product(levels), coverage: 'controller levels' };
-  const extremes = levels.map((l) => [l[0]!, l.at(-1)!]);
-  if (count(extremes) <= limit) return { states: product(extremes), coverage: 'each off or fully on' };
-  return { states: [levels.map((l) => l[0]!), levels.map((l) => l.at(-1)!)], coverage: 'all off or all on together' };
+  if (count(every) <= limit) return { states: product(every), levels: every, coverage: 'every step combination' };
+  if (count(ordered) <= limit) return { states: product(ordered), levels: ordered, coverage: 'controller levels' };
+  const extremes = ordered.map((l) => [l[0]!, l.at(-1)!]);
+  if (count(extremes) <= limit) return { states: product(extremes), levels: extremes, coverage: 'each off or fully on' };
+  return { states: [ordered.map((l) => l[0]!), ordered.map((l) => l.at(-1)!)], levels: extremes, coverage: 'all off or all on together' };
 }
 
 /** The other banks' state in words: `Studios bank off; Plant bank steps 1+2`. */
@@ -140,14 +168,16 @@ export function scanJointResonance(fundamental: InstallationSolution, models: re
   const bank = models[evaluator.banks[own]!.board]!.bank!;
   const others = evaluator.banks.flatMap((_, k) => (k === own ? [] : [k]));
   const otherNames = others.map((k) => boardOf(k).name);
-  const levels = others.map((k) => controllerLevels(boardOf(k), models[evaluator.banks[k]!.board]!.bank!));
+  const bankOf = (k: number) => models[evaluator.banks[k]!.board]!.bank!;
+  const every = others.map((k) => switchingLevels(boardOf(k), bankOf(k)));
+  const ordered = others.map((k) => controllerLevels(boardOf(k), bankOf(k)));
 
   // This bank's combinations, electrically identical ones once (as scanResonance).
   const combos = stepCombinations(bank.stepLoads.length);
   const keys = combos.map((steps) => stateKey(ownBoard, bank, steps));
   const firstOf = keys.map((k) => keys.indexOf(k));
   const distinct = combos.flatMap((_, c) => (firstOf[c] === c ? [c] : []));
-  const { states: chosen, coverage } = otherStates(levels, distinct.length, limit);
+  const { states: chosen, levels, coverage } = otherStates(every, ordered, distinct.length, limit);
 
   const states: NetworkState[] = distinct.flatMap((c) =>
     chosen.map((levelsOn) => {

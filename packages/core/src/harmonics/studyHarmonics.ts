@@ -20,7 +20,7 @@ import { checkVoltageDistortion } from './voltageDistortion.js';
 import { HARMONICS_DEFAULTS } from './harmonicsDefaults.js';
 import type { HarmonicsBoardSpec } from './harmonicsSpec.js';
 import { harmonicsCautions, harmonicsWarningText, neutralPractice } from './harmonicsWording.js';
-import type { CapacitorDuty, DutyCase, HarmonicLineReading, HarmonicsReport, HarmonicsWarning, NeutralCheck, ResonanceScan, TddCheck, VoltageDistortionCheck } from './harmonicsResult.js';
+import type { CapacitorDuty, DutyCase, DutyCondition, HarmonicLineReading, HarmonicsReport, HarmonicsWarning, NeutralCheck, ResonanceScan, TddCheck, VoltageDistortionCheck } from './harmonicsResult.js';
 import { conventionsOf } from '../board/conventions/boardConventions.js';
 import { regionWords } from '../board/conventions/regionWords.js';
 import { labelIn } from '../board/conventions/phaseNames.js';
@@ -99,12 +99,18 @@ export function checkedOrders(present: readonly number[]): Pick<ResonanceScan, '
     : { checkedOrders: [...HARMONICS_DEFAULTS.watchedOrders], checkedOrdersFrom: 'characteristic orders (no spectrum given)' };
 }
 
+/** The other banks of an installation in a duty solve: all fully on, all out of service, or the given parts off (per board, load numbers). */
+export type OtherBanksSetting = 'on' | 'off' | { readonly partsOff: readonly (readonly number[])[] };
+
+/** Other banks' states a duty check adds for one state of this bank's steps: each in words, with its parts off. */
+export type SwitchedOtherBanks = (steps: readonly boolean[]) => readonly { readonly words: string; readonly partsOff: readonly (readonly number[])[] }[];
+
 /**
  * Solves the fundamental and every order for the bank's board as given (`board`, `model`), with
  * every load off when `loadsOff`: the whole installation where the board has a place in one, with
- * every other board's bank out of service when `otherBanksOff`.
+ * every other board's bank as `others` sets it.
  */
-export type DutySolver = (board: Board, model: HarmonicModel, loadsOff: boolean, otherBanksOff: boolean) => OrderSolution[];
+export type DutySolver = (board: Board, model: HarmonicModel, loadsOff: boolean, others: OtherBanksSetting) => OrderSolution[];
 
 /** The duty solver of a single board. */
 const boardDutySolver =
@@ -114,13 +120,16 @@ const boardDutySolver =
 
 /**
  * Every state of the board's bank, each at the capacitance tolerance ends and with the loads off —
- * and, where the installation has `otherBanks`, with them all on and all out of service: the worst per state.
+ * and, where the installation has `otherBanks`, with them all on and all out of service, and in each
+ * state `switched` gives for this bank's state (where the joint scan found a peak near a checked
+ * order): the worst per state.
  */
-export function capacitorDuty(board: Board, model: HarmonicModel, solveOrders: DutySolver, otherBanks = false): CapacitorDuty | null {
+export function capacitorDuty(board: Board, model: HarmonicModel, solveOrders: DutySolver, otherBanks = false, switched?: SwitchedOtherBanks): CapacitorDuty | null {
   const bank = model.bank;
   if (!bank) return null;
   const { limits, source } = DUTY_LIMITS[model.capacitorStandard];
   const conditions = dutyConditions(model.capacitanceTolerance, otherBanks);
+  const plainConditions = dutyConditions(model.capacitanceTolerance);
   const ratio = (c: DutyCase) => dutyRatio(c.figures, limits);
   const cases: DutyCase[] = [];
   const nominalCases: DutyCase[] = [];
@@ -131,14 +140,17 @@ export function capacitorDuty(board: Board, model: HarmonicModel, solveOrders: D
     const key = stateKey(board, bank, steps);
     if (seen.has(key)) continue;
     seen.add(key);
-    const switched = withSteps(board, bank, steps);
+    const withState = withSteps(board, bank, steps);
+    const others = (switched?.(steps) ?? []).map((o) => ({ ...o, conditions: plainConditions.map((c): DutyCondition => ({ ...c, otherBanks: 'switched', otherBanksState: o.words })) }));
+    const partsOff = new Map(others.map((o) => [o.words, o.partsOff]));
     let worst: DutyCase | null = null;
-    for (const condition of conditions) {
-      const at = withCapacitanceFactor(switched, model, condition.capacitancePercent / 100);
-      const orders = solveOrders(at.board, at.model, condition.loads === 'off', condition.otherBanks === 'off');
+    for (const condition of [...conditions, ...others.flatMap((o) => o.conditions)]) {
+      const at = withCapacitanceFactor(withState, model, condition.capacitancePercent / 100);
+      const setting: OtherBanksSetting = condition.otherBanks === 'switched' ? { partsOff: partsOff.get(condition.otherBanksState!)! } : condition.otherBanks === 'off' ? 'off' : 'on';
+      const orders = solveOrders(at.board, at.model, condition.loads === 'off', setting);
       const c = dutyCase(orders, at.model.bank!, steps, combinationLabel(bank, steps), limits, condition);
       if (!c) continue;
-      if (condition.capacitancePercent === 100 && condition.loads === 'as given' && condition.otherBanks !== 'off') nominalCases.push(c);
+      if (condition.capacitancePercent === 100 && condition.loads === 'as given' && (condition.otherBanks === undefined || condition.otherBanks === 'on')) nominalCases.push(c);
       highestCapacitorVoltageV = Math.max(highestCapacitorVoltageV, c.capacitorVoltageV);
       if (!worst || ratio(c) > ratio(worst)) worst = c;
     }
@@ -176,7 +188,7 @@ export function assumptions(board: Board, model: HarmonicModel, otherBanks = fal
     `source and feeder resistance ${model.resistance === 'constant' ? 'constant with frequency' : '× √h (skin effect)'}; reactances × h (inductive) or / h (capacitive)`,
     ...(model.bank
       ? [
-          `capacitor duty: every bank state at capacitance −${model.capacitanceTolerance.minusPercent} %, nominal and +${model.capacitanceTolerance.plusPercent} %, with the loads as given and with every load off (the highest voltage; a controller normally switches steps off at light load, so that row covers a step left on)${otherBanks ? ', each with every other bank fully on and with every other bank out of service' : ''}`,
+          `capacitor duty: every bank state at capacitance −${model.capacitanceTolerance.minusPercent} %, nominal and +${model.capacitanceTolerance.plusPercent} %, with the loads as given and with every load off (the highest voltage; a controller normally switches steps off at light load, so that row covers a step left on)${otherBanks ? ', each with every other bank fully on, with every other bank out of service, and with the other banks in each state at which the joint scan puts a peak within ±10 % of a checked order' : ''}`,
         ]
       : []),
     model.background.length ? 'background supply distortion at each phase with h × the phase angle of its EMF' : 'no background supply distortion (the supply EMF is sinusoidal)',

@@ -19,12 +19,12 @@ import { boardOfInstallation, installationOf } from '../network/installationMode
 import { solveInstallationNetwork, type InstallationSolution, type SolveOptions } from '../network/solveNetwork.js';
 import { addInstalledBank, ordersPresent, resolveHarmonicModel, type BankModel, type HarmonicModel } from './harmonicModel.js';
 import type { HarmonicLoadSpec, InstallationHarmonicsSectionSpec } from './harmonicsSpec.js';
-import type { BoardHarmonics, BoardScan, HarmonicsWarning, InstallationHarmonicsReport, InstallationHarmonicsWarning, JointScan, ResonanceScan } from './harmonicsResult.js';
+import type { BoardHarmonics, BoardScan, HarmonicsWarning, InstallationHarmonicsReport, InstallationHarmonicsWarning, JointScan, OtherBankLevel, ResonanceScan } from './harmonicsResult.js';
 import { solveInstallationAtOrder } from './installationAtOrder.js';
 import { readLines, readLineToLine, type OrderSolution } from './readHarmonics.js';
 import { combinationLabel, scanResonance } from './scanResonance.js';
 import { createInstallationScanEvaluator } from './scanEvaluator.js';
-import { withInstallationLoadsOff, withOtherBanksOff } from './dutyConditions.js';
+import { withInstallationLoadsOff, withOtherBanksOff, withPartsOff } from './dutyConditions.js';
 import { scanJointResonance } from './scanJointResonance.js';
 import { checkVoltageDistortion } from './voltageDistortion.js';
 import { bankStateWords, harmonicsAssumptionText, harmonicsCautions, harmonicsWarningText } from './harmonicsWording.js';
@@ -39,6 +39,7 @@ import {
   tddCheck,
   type DutySolver,
   type HarmonicsOptions,
+  type SwitchedOtherBanks,
 } from './studyHarmonics.js';
 
 /** What the study reads of an installation file: the installation, its loads' harmonic fields and the `harmonics:` section. */
@@ -95,12 +96,48 @@ const bankPartsOf = (models: readonly HarmonicModel[]) => models.map((m) => (m.b
 
 /** The duty solver of bank board `b`: the whole installation with that board as the bank state has it. */
 function installationDutySolver(models: readonly HarmonicModel[], b: number, solve?: SolveOptions): DutySolver {
-  return (board, model, loadsOff, otherBanksOff) => {
+  return (board, model, loadsOff, others) => {
     const { installation } = installationOf(board);
     const at = models.map((m, i) => (i === b ? model : m));
-    const switched = otherBanksOff ? withOtherBanksOff(installation, bankPartsOf(models), b) : installation;
+    const switched = others === 'on' ? installation : others === 'off' ? withOtherBanksOff(installation, bankPartsOf(models), b) : withPartsOff(installation, others.partsOff);
     const { fundamental, solved } = solveOrders(loadsOff ? withInstallationLoadsOff(switched) : switched, at, solve);
     return boardOrders(b, fundamental, solved);
+  };
+}
+
+/**
+ * For a state of bank board `b`'s steps, the other banks' states at which its joint scan put a peak
+ * within ±10 % of a checked order (its near orders), other than all on or all off (checked anyway):
+ * each in the scan's words, with the parts it has off.
+ */
+function switchedOtherBanks(joint: JointScan, names: readonly string[], models: readonly HarmonicModel[]): SwitchedOtherBanks {
+  const boards = joint.otherBanks.map((o) => names.indexOf(o.board));
+  const partsOff = (levels: readonly OtherBankLevel[]) =>
+    names.map((_, c) => {
+      const j = boards.indexOf(c);
+      if (j < 0) return [];
+      const bank = models[c]!.bank!;
+      const level = levels[j]!;
+      return [...(bank.fixedLoad !== null && !level.fixedOn ? [bank.fixedLoad] : []), ...bank.stepLoads.filter((_, k) => !level.steps[k])];
+    });
+  const words = (levels: readonly OtherBankLevel[]) => levels.map((l, j) => bankStateWords(joint.otherBanks[j]!.board, l.label)).join('; ');
+  const extremes = new Set([words(joint.otherBanks.map((o) => o.levels[0]!)), words(joint.otherBanks.map((o) => o.levels.at(-1)!))]);
+  const wanted = new Set(joint.combinations.flatMap((c) => c.nearOrders.map((n) => n.peak.otherBanks)).filter((w) => !extremes.has(w)));
+  const states = new Map<string, readonly (readonly number[])[]>();
+  const visit = (prefix: readonly OtherBankLevel[]): void => {
+    if (states.size === wanted.size) return;
+    if (prefix.length === joint.otherBanks.length) {
+      const w = words(prefix);
+      if (wanted.has(w)) states.set(w, partsOff(prefix));
+      return;
+    }
+    for (const level of joint.otherBanks[prefix.length]!.levels) visit([...prefix, level]);
+  };
+  if (wanted.size) visit([]);
+  return (steps) => {
+    const combination = joint.combinations.find((c) => c.steps.every((on, k) => on === steps[k]));
+    const near = [...new Set(combination?.nearOrders.map((n) => n.peak.otherBanks) ?? [])];
+    return near.flatMap((w) => (states.has(w) ? [{ words: w, partsOff: states.get(w)! }] : []));
   };
 }
 
@@ -116,7 +153,7 @@ function installationAssumptions(main: Board, models: readonly HarmonicModel[], 
   return [
     ...assumptions(main, merged, banks.length > 1),
     'sub-board feeders per conductor like the service feeder (line and neutral); each feeder neutral carries its boards’ zero-sequence (triplen) current back towards the source',
-    ...(banks.length > 1 ? [harmonicsAssumptionText.jointScan, ...scans.flatMap((s) => (s.jointScan && s.jointScan.coverage !== 'controller levels' ? [harmonicsAssumptionText.jointScanReduced(s.board, s.jointScan)] : []))] : []),
+    ...(banks.length > 1 ? [harmonicsAssumptionText.jointScan, ...scans.flatMap((s) => (s.jointScan && s.jointScan.coverage !== 'every step combination' ? [harmonicsAssumptionText.jointScanReduced(s.board, s.jointScan)] : []))] : []),
   ];
 }
 
@@ -217,7 +254,7 @@ export function studyInstallationHarmonicsSpec(spec: HarmonicsInstallationSpec, 
     const evaluator = createInstallationScanEvaluator(fundamental, models, b);
     const scan = scanResonance(fundamental.boards[b]!, models[b]!, { ...checked, ...(options.scanOrders ? { grid: options.scanOrders } : {}) }, evaluator);
     const jointScan = scanJointResonance(fundamental, models, evaluator, { grid: scan.orders, checkedOrders: scan.checkedOrders, ...(options.jointStateLimit !== undefined ? { stateLimit: options.jointStateLimit } : {}) });
-    const duty = capacitorDuty(fundamental.boards[b]!.board, models[b]!, installationDutySolver(models, b, options.solve), bankBoards.length > 1);
+    const duty = capacitorDuty(fundamental.boards[b]!.board, models[b]!, installationDutySolver(models, b, options.solve), bankBoards.length > 1, jointScan ? switchedOtherBanks(jointScan, names, models) : undefined);
     warnings.push(...harmonicsWarnings({ scan, neutral: null, voltageDistortion: null, duty, tdd: null }, label).map((w) => ({ ...w, board: names[b]! })));
     if (jointScan) warnings.push(...jointResonanceWarnings(names[b]!, scan, jointScan).map((w) => ({ ...w, board: names[b]! })));
     return { board: names[b]!, scan, jointScan, capacitorDuty: duty };

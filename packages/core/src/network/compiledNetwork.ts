@@ -21,6 +21,7 @@ import { leastDeterminedUnknown, solveComplexSystem } from '../_internal/complex
 import { analysePattern, factorInPlace, forwardInOrder, substituteInOrder, type SparsePattern } from '../_internal/sparseComplexLu.js';
 import { factorRealInPlace, invertReal3InPlace, multiplyReal3, solveRealFactored } from '../_internal/denseRealLu.js';
 import { LoadPortReduction } from './loadPortReduction.js';
+import { STEPS_CONTINUE, STEPS_DECLINED, STEPS_SETTLED, ThreePairPortSteps } from './threePairPortSteps.js';
 import { REFERENCE, type Circuit } from './circuit.js';
 import { resolveSolveOptions, type ResolvedSolveOptions, type SolveOptions } from './solveOptions.js';
 
@@ -143,6 +144,8 @@ export class CompiledNetwork {
    * and re-solved gives to the last bit what a fresh compile and solve gives.
    */
   private readonly reduction: LoadPortReduction | null = null;
+  /** The first Newton steps written out, where three pairs are the only ports (see threePairPortSteps.ts). */
+  private readonly threePairSteps: ThreePairPortSteps | null = null;
   /** Whether the last solve's Newton path went through `reduction`. */
   private throughPorts = false;
   /** Port of each branch in `reduction` (-1: inactive, or no end is an unknown); ports 0…pairCount−1 are the pairs. */
@@ -341,6 +344,22 @@ export class CompiledNetwork {
     this.columnIm = new Float64Array(newton * size);
 
     if (newton > 0 && size <= MAX_REDUCED_UNKNOWNS) this.reduction = this.portReduction(pairKey, pairFrom, pairTo, positionOf);
+    if (q === 3 && this.reduction !== null && this.reduction.portCount === 3)
+      this.threePairSteps = new ThreePairPortSteps(
+        {
+          count: m,
+          pairOf: this.pairOf,
+          portOf: this.portOf,
+          active: this.bActive,
+          vNominal: this.vNominal,
+          zipZ: this.zipZ,
+          zipI: this.zipI,
+          zipP: this.zipP,
+          powerRe: this.powerRe,
+          powerIm: this.powerIm,
+        },
+        this.reduction,
+      );
   }
 
   /**
@@ -692,7 +711,27 @@ export class CompiledNetwork {
     if (reduction) this.openCircuit(reduction);
     let previousChange = 0;
     const most = Math.min(options.maxIterations, MAX_NEWTON_SOLVES);
-    for (let solves = 1; solves <= most; solves++) {
+    let first = 1;
+    const steps = this.threePairSteps;
+    if (steps !== null) {
+      // The same first steps as the loop below takes through the ports, written out.
+      const outcome = steps.run(mag, most, threshold, options.tolerance, vBase, CONTRACTION_LIMIT, ROUND_OFF_CHANGE, this.xRe, this.xIm);
+      if (outcome === STEPS_DECLINED) return false;
+      if (outcome === STEPS_SETTLED) {
+        // As below: the node voltages from the nodal matrix at the state's admittances.
+        this.admittancesAtMagnitudes(threshold, false);
+        this.solveLinear();
+        this.iterations = steps.solves;
+        this.lastChange = steps.lastChange;
+        this.method = 'newton';
+        return true;
+      }
+      if (outcome === STEPS_CONTINUE) {
+        first = steps.solves + 1;
+        previousChange = steps.lastChange;
+      } else for (let g = 0; g < q; g++) mag[g] = this.pairNominal[g]!; // a small port pivot: the loop below, from the start
+    }
+    for (let solves = first; solves <= most; solves++) {
       this.admittancesAtMagnitudes(threshold, true);
       if (this.held) return false;
       // Through the ports while the step is still large; from the third solve on (the one

@@ -61,11 +61,11 @@ export class LoadPortReduction {
   private readonly portFixedRe: Float64Array;
   private readonly portFixedIm: Float64Array;
   /** T: column p (at p·size, elimination order) = the unknowns' voltages per unit current through port p. */
-  private readonly towardRe: Float64Array;
-  private readonly towardIm: Float64Array;
+  readonly towardRe: Float64Array;
+  readonly towardIm: Float64Array;
   /** W (ports × ports, row-major), S. */
-  private readonly wRe: Float64Array;
-  private readonly wIm: Float64Array;
+  readonly wRe: Float64Array;
+  readonly wIm: Float64Array;
   /** V_open (elimination order) and W·v_open with no injection: fixed at compile time. */
   private readonly sourceOpenRe: Float64Array;
   private readonly sourceOpenIm: Float64Array;
@@ -204,6 +204,20 @@ export class LoadPortReduction {
     for (const table of [r.wRe, r.wIm, towardRe, towardIm, r.sourceOpenRe, r.sourceOpenIm, r.sourceDriveRe, r.sourceDriveIm])
       for (let k = 0; k < table.length; k++) if (!Number.isFinite(table[k]!)) return null;
     return r;
+  }
+
+  /** V_open of the last `openCircuit` (elimination order), V, and W·v_open, A. */
+  get openRe(): Float64Array {
+    return this.injected ? this.injectedOpenRe : this.sourceOpenRe;
+  }
+  get openIm(): Float64Array {
+    return this.injected ? this.injectedOpenIm : this.sourceOpenIm;
+  }
+  get driveRe(): Float64Array {
+    return this.injected ? this.injectedDriveRe : this.sourceDriveRe;
+  }
+  get driveIm(): Float64Array {
+    return this.injected ? this.injectedDriveIm : this.sourceDriveIm;
   }
 
   /** Voltage across port a (from − to) of the vector at `offset` in `x` (elimination order), its fixed ends left out. */

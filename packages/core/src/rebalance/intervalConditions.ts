@@ -8,7 +8,8 @@
  * neutral currents are read in the fast model (stiff balanced supply, each
  * circuit's complex power at nominal voltage, as the study scores). Picked:
  * the interval of the highest current on each line, of the highest neutral
- * current, of the highest total import (kW) and, where the board exports, of
+ * current, of the highest line current of each part named in `parts` (an
+ * installation's sub-board feeders), of the highest total import (kW) and, where the board exports, of
  * the highest total export; then `spread` intervals at evenly spaced
  * quantiles of the total apparent power ((k + ½)/spread), the board's typical
  * states. An interval picked for several reasons is one condition. Weights
@@ -24,6 +25,11 @@ import { fixedLoadLineCurrents, nominalPhaseVoltages } from './buildAssignmentPr
 export interface IntervalConditionOptions {
   /** Quantile picks of the total apparent power besides the peaks. @defaultValue 8 */
   readonly spread?: number;
+  /**
+   * Parts of the board whose own peak is picked too: per part, the interval of the highest current
+   * on any of its lines from its loads alone (an installation's sub-board feeders). @defaultValue none
+   */
+  readonly parts?: readonly { readonly name: string; readonly loads: readonly number[] }[];
 }
 
 /** One load condition for `rebalanceBoard`'s `loadConditions` option. */
@@ -39,7 +45,7 @@ export interface IntervalPick {
   /** Interval index in the data. */
   readonly interval: number;
   readonly utcMs: number;
-  /** Why it was picked: `peak line A`, `peak neutral`, `peak import`, `peak export`, `quantile 6 %`. */
+  /** Why it was picked: `peak line A`, `peak neutral`, `peak current at Workshop`, `peak import`, `peak export`, `quantile 6 %`. */
   readonly reasons: readonly string[];
   readonly hours: number;
 }
@@ -83,35 +89,43 @@ export function conditionsFromIntervals(
   // Per driver and line: the line current per unit (conjugated) driver value, in the fast model.
   const v = nominalPhaseVoltages(rerated);
   const lines = rerated.phases.length;
-  const perDriver = drivers.map((d) => {
-    let w = rerated.phases.map(() => ZERO);
-    for (const { load, coefficient } of d.loads) {
-      const unit = fixedLoadLineCurrents(rerated, v, rerated.loads[load]!, div(coefficient, rating[load]!));
-      w = w.map((x, k) => add(x, unit[k]!));
-    }
-    return w;
-  });
-  // I(i) = Σ_d conj(a_d(i)) · w_d (each load current is conj(S/V), linear in conj of its power).
-  const lineRe = Array.from({ length: lines }, () => new Float64Array(n));
-  const lineIm = Array.from({ length: lines }, () => new Float64Array(n));
+  /** Line currents of every interval from the loads `counted` lets through. */
+  const lineCurrents = (counted: (load: number) => boolean) => {
+    const perDriver = drivers.map((d) => {
+      let w = rerated.phases.map(() => ZERO);
+      for (const { load, coefficient } of d.loads) {
+        if (!counted(load)) continue;
+        const unit = fixedLoadLineCurrents(rerated, v, rerated.loads[load]!, div(coefficient, rating[load]!));
+        w = w.map((x, k) => add(x, unit[k]!));
+      }
+      return w;
+    });
+    // I(i) = Σ_d conj(a_d(i)) · w_d (each load current is conj(S/V), linear in conj of its power).
+    const re = Array.from({ length: lines }, () => new Float64Array(n));
+    const im = Array.from({ length: lines }, () => new Float64Array(n));
+    for (let i = 0; i < n; i++)
+      for (let d = 0; d < drivers.length; d++) {
+        const a = columns.re[d]![i]!;
+        const b = -columns.im[d]![i]!;
+        for (let k = 0; k < lines; k++) {
+          const w = perDriver[d]![k]!;
+          re[k]![i]! += a * w.re - b * w.im;
+          im[k]![i]! += a * w.im + b * w.re;
+        }
+      }
+    return { re, im };
+  };
+  const { re: lineRe, im: lineIm } = lineCurrents(() => true);
   const kW = new Float64Array(n);
   const kVA = new Float64Array(n);
   for (let i = 0; i < n; i++) {
     let p = 0;
     let q = 0;
-    for (let d = 0; d < drivers.length; d++) {
-      const re = columns.re[d]![i]!;
-      const im = -columns.im[d]![i]!;
-      for (let k = 0; k < lines; k++) {
-        const w = perDriver[d]![k]!;
-        lineRe[k]![i]! += re * w.re - im * w.im;
-        lineIm[k]![i]! += re * w.im + im * w.re;
-      }
+    for (let d = 0; d < drivers.length; d++)
       for (const { coefficient } of drivers[d]!.loads) {
         p += columns.re[d]![i]! * coefficient.re - columns.im[d]![i]! * coefficient.im;
         q += columns.re[d]![i]! * coefficient.im + columns.im[d]![i]! * coefficient.re;
       }
-    }
     kW[i] = p / 1000;
     kVA[i] = Math.hypot(p, q) / 1000;
   }
@@ -135,6 +149,13 @@ export function conditionsFromIntervals(
       return Math.hypot(re, im);
     };
     pick(argMax(neutral), 'peak neutral');
+  }
+  for (const part of options.parts ?? []) {
+    const own = new Set(part.loads);
+    const at = lineCurrents((l) => own.has(l));
+    const worst = (i: number) => Math.max(...at.re.map((re, k) => Math.hypot(re[i]!, at.im[k]![i]!)));
+    const i = argMax(worst);
+    if (worst(i) > 0) pick(i, `peak current at ${part.name}`);
   }
   pick(argMax((i) => kW[i]!), 'peak import');
   const exportAt = argMax((i) => -kW[i]!);

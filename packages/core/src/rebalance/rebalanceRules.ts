@@ -13,6 +13,7 @@ import type { ProfileSpec } from '../profile/profileSpec.js';
 import { rebalanceSpecSchema, type LoadConditionSpec, type RebalanceSpec } from './rebalanceSpec.js';
 import { loadOf, type RebalanceTree } from './rebalanceTree.js';
 import type { AimWeights } from './rebalanceObjective.js';
+import { ONE_SHOT_PARSE } from '../_internal/oneShotParse.js';
 
 export const LINE_TO_NEUTRAL: readonly ConnectionSpec[] = ['A-N', 'B-N', 'C-N'];
 export const LINE_TO_LINE: readonly ConnectionSpec[] = ['A-B', 'B-C', 'C-A'];
@@ -226,7 +227,7 @@ function boardIssues(spec: RebalanceSpec, tree: RebalanceTree, movable: boolean[
  * @throws {InputError}
  */
 export function resolveRebalanceSpec(input: unknown, tree: RebalanceTree, context: RebalanceContext = {}): ResolvedRebalance {
-  const parsed = rebalanceSpecSchema.safeParse(input ?? {});
+  const parsed = rebalanceSpecSchema.safeParse(input ?? {}, ONE_SHOT_PARSE);
   if (!parsed.success) throw new InputError(inputIssuesFromZod(parsed.error.issues, input ?? {}), 'the rebalancing study is not valid');
   const spec = parsed.data;
   const board = tree.boards[0]!;

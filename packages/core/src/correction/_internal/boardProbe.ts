@@ -7,10 +7,13 @@
 import type { Board } from '../../board/boardModel.js';
 import type { BoardResult } from '../../analysis/boardResult.js';
 import { analyseSolution, readLinePowers, readSequenceCurrents, type SequenceReading } from '../../analysis/analyseSolution.js';
-import { compileBoard, solveCompiledBoard, solveCompiledInstallation, type CompiledBoard, type NetworkSolution, type SolveOptions } from '../../network/solveNetwork.js';
+import { compileBoard, readInstallationSolution, type CompiledBoard, type NetworkSolution, type SolveOptions } from '../../network/solveNetwork.js';
+import { resolveSolveOptions } from '../../network/solveOptions.js';
+import { REFERENCE } from '../../network/networkTopology.js';
+import type { ComplexValue } from '../../complex.js';
 import type { MeteringPlace } from '../meteringPoint.js';
 import { conventionsOf } from '../../board/conventions/boardConventions.js';
-import { addCorrectionEquipment, equipmentGroups, susceptanceFromKvar, type BranchSlot, type EquipmentGroup } from '../equipment.js';
+import { addCorrectionEquipment, cleanSusceptance, equipmentGroups, equipmentPower, susceptanceFromKvar, type BranchSlot, type EquipmentGroup } from '../equipment.js';
 
 export interface ProbeState {
   readonly kvar: readonly number[];
@@ -44,6 +47,9 @@ export interface BoardProbe {
  */
 const PROBE_SOLVE: SolveOptions = { tolerance: 1e-13, maxIterations: 400 };
 
+/** Trial states a probe keeps for repeated questions (a Jacobian at a point two loops both linearise around). */
+const REMEMBERED_STATES = 32;
+
 export function createProbe(board: Board, slots: readonly BranchSlot[], name: string, solveOptions: SolveOptions = {}, meter: MeteringPlace | null = null): BoardProbe {
   // With a metering point elsewhere every trial solves the installation the point is a board of.
   const base = meter ? meter.inFrame(board) : board;
@@ -57,72 +63,151 @@ export function createProbe(board: Board, slots: readonly BranchSlot[], name: st
       kvar.map((q, i) => susceptanceFromKvar(q, slots[i]!.vNominal)),
       { naming },
     );
-  const solveEquipped = equippedSolver(base);
+  const solveTrial = trialSolver(base, slots, groups, solve, meter);
+  // A trial's solve depends on its outputs alone (every solve starts from the same state), so a
+  // repeated question is answered from the state kept, bit for bit what solving again gives.
+  const remembered = new Map<string, ProbeState>();
   return {
     slots,
     base,
     groups,
     solves: () => count,
     at(kvar) {
+      const key = keyOf(kvar);
+      const known = remembered.get(key);
+      if (known) return known;
       count++;
-      const board = addCorrectionEquipment(base, groups(kvar));
-      const { solution, metering } = solveEquipped(board, solve, meter);
-      // Most trial solves are read for line powers (or the bank board's sequence currents) only: the whole analysis waits until asked for.
-      const lines = readLinePowers(metering ?? solution);
-      let result: BoardResult | undefined;
-      let metered: BoardResult | undefined;
-      let sequences: SequenceReading | null | undefined;
-      const bankResult = () => (result ??= analyseSolution(solution));
-      return {
-        kvar: [...kvar],
-        board,
-        get result() {
-          return bankResult();
-        },
-        get metered() {
-          return metering ? (metered ??= analyseSolution(metering)) : bankResult();
-        },
-        get sequences() {
-          return sequences === undefined ? (sequences = readSequenceCurrents(solution)) : sequences;
-        },
-        lineP: lines.map((p) => p.kW),
-        lineQ: lines.map((p) => p.kvar),
-        lineS: lines.map((p) => p.kVA),
-      };
+      const state = solveTrial(kvar);
+      if (remembered.size >= REMEMBERED_STATES) remembered.delete(remembered.keys().next().value!);
+      remembered.set(key, state);
+      return state;
     },
   };
 }
 
+/** A network compiled for trials: the first added branch is circuit branch `first`. */
+interface CompiledTrial {
+  readonly c: CompiledBoard;
+  readonly first: number;
+}
+
+/** Exact text of a vector of outputs (−0 kept apart from 0). */
+const keyOf = (kvar: readonly number[]): string => kvar.map((q) => (Object.is(q, -0) ? '-0' : String(q))).join(' ');
+
 /**
- * Solves the base board with equipment added, compiling once per sizing loop instead of once
+ * Solves the base board with trial equipment, compiling once per sizing loop instead of once
  * per candidate. Candidates differ only in the added branches' values, which a compiled network
- * takes as new branch powers; it is recompiled only when the set of zero-valued branches
- * changes, since a zero branch joins nothing (an all-zero floating star point is a dead node).
+ * takes as new branch powers (see `networkFor` for when another network is needed).
  * Every candidate's solve is the one `solveNetwork` would do: same network, same start.
+ * A trial writes its branch powers straight into the network; the equipped `Board`, the
+ * board's whole solution and its analysis are built only when a caller reads them.
  */
-function equippedSolver(base: Board): (board: Board, options: SolveOptions, meter: MeteringPlace | null) => { solution: NetworkSolution; metering: NetworkSolution | null } {
-  const compiled = new Map<string, CompiledBoard>();
-  const baseLoads = base.loads.length;
-  return (board, options, meter) => {
-    const added = board.loads.slice(baseLoads).flatMap((l) => l.branches);
-    const zeros = added.map((b) => (b.sNominal.re === 0 && b.sNominal.im === 0 ? '0' : '1')).join('');
-    let c = compiled.get(zeros);
-    if (!c) {
-      c = compileBoard(board);
-      compiled.set(zeros, c);
-    } else {
-      const net = c.network;
-      let k = c.installation.layout.branchOffset[c.boardIndex]!;
-      for (let l = 0; l < baseLoads; l++) k += board.loads[l]!.branches.length;
-      for (const b of added) {
-        net.powerRe[k] = b.sNominal.re;
-        net.powerIm[k] = b.sNominal.im;
-        k++;
-      }
+function trialSolver(
+  base: Board,
+  slots: readonly BranchSlot[],
+  groups: (kvar: readonly number[]) => EquipmentGroup[],
+  options: SolveOptions,
+  meter: MeteringPlace | null,
+): (kvar: readonly number[]) => ProbeState {
+  // The added loads' branches in the order `addCorrectionEquipment` adds them: slot indices.
+  const order = groups(slots.map(() => 1)).flatMap((g) => g.branches.map((b) => slots.findIndex((s) => s.branch === b.branch)));
+  const toStar = order.map((i) => slots[i]!.to === 'star');
+  const opts = resolveSolveOptions(options);
+  const power = new Float64Array(order.length);
+  const compileWith = (kvar: readonly number[]): CompiledTrial => {
+    const c = compileBoard(addCorrectionEquipment(base, groups(kvar)));
+    let first = c.installation.layout.branchOffset[c.boardIndex]!;
+    for (let l = 0; l < base.loads.length; l++) first += base.loads[l]!.branches.length;
+    return { c, first };
+  };
+  // A compiled network depends on the branch values only through which nodes are live (reach the
+  // source). A branch between two nodes live without it changes none, so one network, compiled with
+  // those branches at zero, serves every value of theirs; a floating star point is live only through
+  // its own branches, so its zero pattern picks the network. Where an end would be dead without the
+  // branch, networks are kept per zero pattern of every branch.
+  const shared = new Map<string, CompiledTrial | null>();
+  const perPattern = new Map<string, CompiledTrial>();
+  const networkFor = (kvar: readonly number[]): CompiledTrial => {
+    let starZeros = '';
+    let zeros = '';
+    for (let j = 0; j < order.length; j++) {
+      zeros += power[j] === 0 ? '0' : '1';
+      if (toStar[j]) starZeros += power[j] === 0 ? '0' : '1';
     }
-    if (!meter) return { solution: solveCompiledBoard({ ...c, board }, options), metering: null };
-    const boards = solveCompiledInstallation(c.installation, options).boards;
-    return { solution: { ...boards[c.boardIndex]!, board }, metering: boards[meter.meterIndex]! };
+    let entry = shared.get(starZeros);
+    if (entry === undefined) {
+      const trial = compileWith(kvar.map((q, i) => (slots[i]!.to === 'star' ? q : 0)));
+      const net = trial.c.network;
+      const live = (node: number) => node === REFERENCE || net.live[node] === 1;
+      const endsLive = order.every((_, j) => {
+        const b = net.circuit.branches[trial.first + j]!;
+        return toStar[j] || (live(b.from) && live(b.to));
+      });
+      shared.set(starZeros, (entry = endsLive ? trial : null));
+    }
+    if (entry) return entry;
+    let exact = perPattern.get(zeros);
+    if (!exact) perPattern.set(zeros, (exact = compileWith(kvar)));
+    return exact;
+  };
+  return (kvar) => {
+    for (let j = 0; j < order.length; j++) {
+      const slot = slots[order[j]!]!;
+      // The arithmetic of equipmentGroups + addCorrectionEquipment (design state, factor 1), to the bit.
+      power[j] = equipmentPower(cleanSusceptance(susceptanceFromKvar(kvar[order[j]!]!, slot.vNominal), slot.vNominal), slot.vNominal).im;
+    }
+    const outputs = [...kvar];
+    let equipped: Board | undefined;
+    const board = () => (equipped ??= addCorrectionEquipment(base, groups(outputs)));
+    const entry = networkFor(kvar);
+    for (let j = 0; j < order.length; j++) {
+      entry.c.network.powerRe[entry.first + j] = 0;
+      entry.c.network.powerIm[entry.first + j] = power[j]!;
+    }
+    const { c } = entry;
+    const net = c.network;
+    net.solve(opts);
+    // What solveCompiledInstallation reads, taken now: the network is re-used by the next trial.
+    const nodeVoltages = Array.from({ length: net.nodeCount }, (_, v): ComplexValue | null => (net.live[v] ? { re: net.voltageRe[v]!, im: net.voltageIm[v]! } : null));
+    const admittances = Array.from({ length: net.branchCount }, (_, k): ComplexValue => ({ re: net.admittanceRe[k]!, im: net.admittanceIm[k]! }));
+    const sourceCurrents = net.sourceCurrents();
+    const boards = readInstallationSolution(c.installation.installation, c.installation.layout, {
+      nodeVoltages,
+      admittances,
+      sourceCurrents,
+      iterations: net.iterations,
+      lastChange: net.lastChange,
+      lowVoltageThreshold: opts.lowVoltageThreshold,
+    }).boards;
+    // The compiled board stands in for the equipped one where only the layout is read (line powers, sequences).
+    const atBank = boards[c.boardIndex]!;
+    const metering = meter ? boards[meter.meterIndex]! : null;
+    let solution: NetworkSolution | undefined;
+    const bankSolution = () => (solution ??= { ...atBank, board: board() });
+    // Most trial solves are read for line powers (or the bank board's sequence currents) only: the whole analysis waits until asked for.
+    const lines = readLinePowers(metering ?? atBank);
+    let result: BoardResult | undefined;
+    let metered: BoardResult | undefined;
+    let sequences: SequenceReading | null | undefined;
+    const bankResult = () => (result ??= analyseSolution(bankSolution()));
+    return {
+      kvar: outputs,
+      get board() {
+        return board();
+      },
+      get result() {
+        return bankResult();
+      },
+      get metered() {
+        return metering ? (metered ??= analyseSolution(metering)) : bankResult();
+      },
+      get sequences() {
+        return sequences === undefined ? (sequences = readSequenceCurrents(atBank)) : sequences;
+      },
+      lineP: lines.map((p) => p.kW),
+      lineQ: lines.map((p) => p.kvar),
+      lineS: lines.map((p) => p.kVA),
+    };
   };
 }
 
