@@ -19,10 +19,9 @@ import {
   planInstallationColumns,
   readBoardText,
   studyInstallationProfile,
-  type BoardLoad,
-  type Installation,
   type ProfileSpec,
 } from '@trivar/core';
+import { scaleLoads, starBank, withLoadOn } from '../support/installationLoads.js';
 import { meteringPlace, solveMeter } from '../../packages/core/src/correction/meteringPoint.js';
 
 const spec = parseInstallation(readBoardText(readFileSync('examples/osier-mill-studios.yaml', 'utf8')));
@@ -38,26 +37,7 @@ const SETTINGS = { targetPf: 0.99, responseShare: 0.67, delaySeconds: 0, reconne
 
 /** The installation at interval i with `kvar` of star-connected capacitors on the pottery (board 1). */
 function pottery(i: number, kvar: number) {
-  let k = 0;
-  const scaled = (loads: readonly BoardLoad[]) =>
-    loads.map((load) => {
-      const x = scales[k++]![i]!;
-      return { ...load, branches: load.branches.map((b) => ({ ...b, sNominal: { re: b.sNominal.re * x, im: b.sNominal.im * x } })) };
-    });
-  const v = installation.main.nominalLineToNeutralV;
-  const bank: BoardLoad = {
-    name: 'bank',
-    connection: 'ABC-star',
-    model: 'constant-impedance',
-    origin: 'added',
-    branches: installation.main.phases.map((p) => ({ from: p, to: 'N' as const, sNominal: { re: 0, im: (-kvar * 1000) / 3 }, vNominal: v, zip: { z: 1, i: 0, p: 0 } })),
-  };
-  const withBank: Installation = {
-    ...installation,
-    main: { ...installation.main, loads: scaled(installation.main.loads) },
-    subBoards: installation.subBoards.map((sb, j) => ({ ...sb, loads: j === 0 ? [...scaled(sb.loads), bank] : scaled(sb.loads) })),
-  };
-  return boardOfInstallation(withBank, 1);
+  return boardOfInstallation(withLoadOn(scaleLoads(installation, (k) => scales[k]![i]!), 1, starBank(installation, kvar)), 1);
 }
 
 function study(bank: ProfileSpec['bank'], options: { measuredAt?: string; measuredAtPath?: string } = {}) {
