@@ -134,6 +134,16 @@ describe('trivar profile on an installation', () => {
     expect(t.stdout).toContain(
       `the controller measures at the origin (the supply's terminals, before the service cable), not at Pottery: billing power factor there ${bank.meter.before.energy.billingPf.toFixed(3)} → ${bank.meter.after.energy.billingPf.toFixed(3)}`,
     );
+    // The CSV files carry the origin too: its summary rows and, first, its interval columns.
+    const summary = join(dir, 'metered-summary.csv');
+    const intervals = join(dir, 'metered-intervals.csv');
+    expect(runTrivar(['profile', file, '--data', `${ROOT}${DATA}`, '--correction-bank', '--summary-csv', summary, '--intervals-csv', intervals]).code).toBe(0);
+    const pf = readFileSync(summary, 'utf8').split('\n').find((l) => l.startsWith('origin,billing power factor,period,'))!.split(',');
+    expect(Number(pf[3])).toBeCloseTo(bank.meter.before.energy.billingPf, 6);
+    expect(Number(pf[4])).toBeCloseTo(bank.meter.after.energy.billingPf, 6);
+    const head = readFileSync(intervals, 'utf8').split('\n')[0]!.split(',');
+    expect(head.slice(0, 3)).toEqual(['time', 'origin: line A A', 'origin: line B A']);
+    expect(head).toContain('origin: PF with bank');
     // profile.bank.measuredAt for a bank sized from the profile; a board the bank is not fed through is refused by its field.
     const sized = join(dir, 'metered-sized.yaml');
     writeFileSync(sized, readFileSync(`${ROOT}${FILE}`, 'utf8').replace(/^profile:$/m, 'profile:\n  bank: { measuredAt: Mill intake }'));

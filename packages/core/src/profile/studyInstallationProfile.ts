@@ -101,6 +101,8 @@ export interface InstallationProfileStudy {
   readonly after: readonly IntervalFigures[] | null;
   /** Switched kvar connected in each interval (nominal; the fixed part on top); null without a bank. */
   readonly connectedKvar: Float64Array | null;
+  /** Where the controller measured, when not at the bank's board: per-interval figures there without and with the bank. */
+  readonly meter: { readonly point: string; readonly before: IntervalFigures; readonly after: IntervalFigures } | null;
   readonly label: (i: number) => string;
 }
 
@@ -219,5 +221,6 @@ export function studyInstallationProfile(input: InstallationProfileInput, option
       : null,
     cautions: PROFILE_CAUTIONS,
   };
-  return { result, utcMs: input.utcMs, before, after: afterFigures, connectedKvar: withBank?.run.connectedKvar ?? null, label };
+  const meterFigures = withBank && meter && meterBefore && meterAfter ? { point: meter.point, before: meterBefore, after: meterAfter as IntervalFigures } : null;
+  return { result, utcMs: input.utcMs, before, after: afterFigures, connectedKvar: withBank?.run.connectedKvar ?? null, meter: meterFigures, label };
 }
