@@ -62,7 +62,7 @@ export const profileBankSchema = z
       .min(1)
       .optional()
       .describe(
-        "installation files: where the controller measures: origin (the supply's terminals, where the service cable starts) or a board the bank's board is fed through (at its incomer); default the bank's own board",
+        "installation files: where the controller measures: origin (the supply's terminals, where the service cable starts) or a board the bank's board is fed through (at its incomer); default the bank's own board. The correction study's bank (--correction-bank) reads where its target is measured instead (correction.target.measuredAt)",
       ),
   })
   .describe('an automatic capacitor bank simulated over the profile');
