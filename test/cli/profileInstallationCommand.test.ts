@@ -118,6 +118,61 @@ describe('trivar profile on an installation', () => {
     expect(runTrivar(['profile', FILE, '--data', DATA, '--correction-bank']).stderr).toContain('no correction section naming an arrangement');
   });
 
+  it('the controller reads where the target says: the correction target\'s measuredAt, or profile.bank.measuredAt', () => {
+    const file = join(dir, 'metered.yaml');
+    writeFileSync(file, `${readFileSync(`${ROOT}${FILE}`, 'utf8')}correction:\n  arrangement: star-bank\n  board: Pottery\n  target: { pf: 0.95, measuredAt: origin }\n`);
+    const j = runTrivar(['profile', file, '--data', `${ROOT}${DATA}`, '--correction-bank', '--json']);
+    expect(j.stderr).toBe('');
+    expect(j.code).toBe(0);
+    const bank = JSON.parse(j.stdout).bank;
+    expect(bank.board).toBe('Pottery');
+    expect(bank.meter.point).toBe('origin');
+    // The origin carries the intake's current: its peak line A is the intake's (the same service cable).
+    const out = JSON.parse(j.stdout);
+    expect(bank.meter.before.conductors[0].maxA).toBeCloseTo(out.boards[0].before.conductors[0].maxA, 9);
+    const t = runTrivar(['profile', file, '--data', `${ROOT}${DATA}`, '--correction-bank']);
+    expect(t.stdout).toContain(
+      `the controller measures at the origin (the supply's terminals, before the service cable), not at Pottery: billing power factor there ${bank.meter.before.energy.billingPf.toFixed(3)} → ${bank.meter.after.energy.billingPf.toFixed(3)}`,
+    );
+    // The CSV files carry the origin too: its summary rows and, first, its interval columns.
+    const summary = join(dir, 'metered-summary.csv');
+    const intervals = join(dir, 'metered-intervals.csv');
+    expect(runTrivar(['profile', file, '--data', `${ROOT}${DATA}`, '--correction-bank', '--summary-csv', summary, '--intervals-csv', intervals]).code).toBe(0);
+    const pf = readFileSync(summary, 'utf8').split('\n').find((l) => l.startsWith('origin,billing power factor,period,'))!.split(',');
+    expect(Number(pf[3])).toBeCloseTo(bank.meter.before.energy.billingPf, 6);
+    expect(Number(pf[4])).toBeCloseTo(bank.meter.after.energy.billingPf, 6);
+    const head = readFileSync(intervals, 'utf8').split('\n')[0]!.split(',');
+    expect(head.slice(0, 3)).toEqual(['time', 'origin: line A A', 'origin: line B A']);
+    expect(head).toContain('origin: PF with bank');
+    // profile.bank.measuredAt for a bank sized from the profile; a board the bank is not fed through is refused by its field.
+    const sized = join(dir, 'metered-sized.yaml');
+    writeFileSync(sized, readFileSync(`${ROOT}${FILE}`, 'utf8').replace(/^profile:$/m, 'profile:\n  bank: { measuredAt: Mill intake }'));
+    const s = runTrivar(['profile', sized, '--data', `${ROOT}${DATA}`, '--bank', '--board', 'Pottery', '--json']);
+    expect(s.code).toBe(0);
+    expect(JSON.parse(s.stdout).bank.meter.point).toBe('Mill intake');
+    const downstream = join(dir, 'metered-downstream.yaml');
+    writeFileSync(downstream, readFileSync(`${ROOT}${FILE}`, 'utf8').replace(/^profile:$/m, 'profile:\n  bank: { measuredAt: Pottery }'));
+    const wrong = runTrivar(['profile', downstream, '--data', `${ROOT}${DATA}`, '--bank', '--board', 'Mill intake']);
+    expect(wrong.code).not.toBe(0);
+    expect(wrong.stderr).toContain('profile.bank.measuredAt');
+    expect(wrong.stderr).not.toMatch(/at .*\.js:\d+/);
+    // A board file's controller reads its own incomer: a target measured at the origin is refused, not ignored.
+    const board = join(dir, 'quay-origin.yaml');
+    writeFileSync(board, readFileSync(`${ROOT}examples/quay-street-flats.yaml`, 'utf8').replace('target: { pf: 0.97, maxLaggingPf: 0.995 }', 'target: { pf: 0.97, maxLaggingPf: 0.995, measuredAt: origin }'));
+    const data = join(dir, 'quay-day.csv');
+    writeFileSync(data, 'time,flats A [kW]\n2025-01-01 00:00,3.2\n2025-01-01 00:01,3.1\n');
+    const single = runTrivar(['profile', board, '--data', data, '--correction-bank']);
+    expect(single.code).toBe(2);
+    expect(single.stderr).toContain('target.measuredAt');
+    expect(single.stderr).toContain('installation file with this one board');
+    const sizedBoard = join(dir, 'quay-bank-origin.yaml');
+    writeFileSync(sizedBoard, readFileSync(`${ROOT}examples/quay-street-flats.yaml`, 'utf8').replace('bank: { targetPf: 0.97,', 'bank: { measuredAt: origin, targetPf: 0.97,'));
+    const own = runTrivar(['profile', sizedBoard, '--data', data, '--bank']);
+    expect(own.code).not.toBe(0);
+    expect(own.stderr).toContain('profile.bank.measuredAt');
+    expect(own.stderr).toContain('installation file with this one board');
+  });
+
   it('writes the summary and per-interval CSV with a board to every row and column set', () => {
     const summary = join(dir, 'summary.csv');
     const intervals = join(dir, 'intervals.csv');

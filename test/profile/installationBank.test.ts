@@ -16,9 +16,9 @@ import {
   solveInstallationNetwork,
   studyInstallationProfile,
   terminalVoltage,
-  type BoardLoad,
   type Installation,
 } from '@trivar/core';
+import { scaleLoads, starBank, withLoadOn } from '../support/installationLoads.js';
 
 const spec = parseInstallation(readBoardText(readFileSync('examples/osier-mill-studios.yaml', 'utf8')));
 const { installation } = normaliseInstallation(spec);
@@ -30,24 +30,7 @@ const STEP_MS = 15 * 60_000;
 const scales = loadNames.map((_, l) => Float64Array.from({ length: COUNT }, (_, i) => Math.max(0, 0.55 + 0.45 * Math.sin((i + 3 * l) / 4) + 0.1 * Math.cos(7 * i + l))));
 
 function withLoadsAt(i: number, bankKvar: number, bankBoard: number): Installation {
-  let k = 0;
-  const scaled = (loads: readonly BoardLoad[]) =>
-    loads.map((load) => {
-      const x = scales[k++]![i]!;
-      return { ...load, branches: load.branches.map((b) => ({ ...b, sNominal: { re: b.sNominal.re * x, im: b.sNominal.im * x } })) };
-    });
-  const v = installation.main.nominalLineToNeutralV;
-  const bank: BoardLoad = {
-    name: 'bank',
-    connection: 'ABC-star',
-    model: 'constant-impedance',
-    origin: 'added',
-    branches: installation.main.phases.map((p) => ({ from: p, to: 'N' as const, sNominal: { re: 0, im: (-bankKvar * 1000) / 3 }, vNominal: v, zip: { z: 1, i: 0, p: 0 } })),
-  };
-  const main = { ...installation.main, loads: scaled(installation.main.loads) };
-  const subBoards = installation.subBoards.map((sb) => ({ ...sb, loads: scaled(sb.loads) }));
-  if (bankBoard === 0) return { ...installation, main: { ...main, loads: [...main.loads, bank] }, subBoards };
-  return { ...installation, main, subBoards: subBoards.map((sb, j) => (j + 1 === bankBoard ? { ...sb, loads: [...sb.loads, bank] } : sb)) };
+  return withLoadOn(scaleLoads(installation, (k) => scales[k]![i]!), bankBoard, starBank(installation, bankKvar));
 }
 
 describe('a bank on a board of an installation', () => {

@@ -242,7 +242,7 @@ export function createProgram(io: CliIo, outcome: RunOutcome = { exitCode: EXIT.
     .option('--board <name>', "installation files: the board the bank goes on (default: the main board, or the correction section's board with --correction-bank)")
     .option('--summary-csv <file>', 'write the summary as CSV')
     .option('--intervals-csv <file>', 'write per-interval results as CSV')
-    .option('--charts <dir>', 'write SVG charts (currents, power factor, load duration) into this folder')
+    .option('--charts <dir>', 'write SVG charts (currents, power factor, load duration) into this folder; installation files: a folder per board and the feeders\' loading')
     .option('--threads <n>', 'worker threads for reading large files (1 or 2; default 2 where there are two cores)', numberIn(0, 2, '1 or 2'))
     .option('--json', 'print the full result as JSON instead of the report')
     .addHelpText('after', PROFILE_EXAMPLES)

@@ -66,6 +66,11 @@ export function designedBankOf(spec: ReturnType<typeof parseBoard>, board: Retur
     throw new UsageError(
       '--correction-bank: the board file has no correction section naming an arrangement, so the correction study designs no single bank (add correction: { arrangement: ... }; trivar correct compares arrangements)',
     );
+  const point = study.target?.measuredAt;
+  if (point !== undefined && point !== board.name)
+    throw new UsageError(
+      `--correction-bank: the correction section measures its target at ${JSON.stringify(point)} (target.measuredAt); on a board file the simulated controller reads the board's own incomer, so write the board as an installation file with this one board under boards: to have it read there`,
+    );
   let selection;
   try {
     selection = correctBoard(board, study).selection;

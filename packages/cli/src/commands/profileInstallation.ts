@@ -44,7 +44,11 @@ export function chartFolders(names: readonly string[]): Map<string, string> {
  * The bank trivar correct designs for the installation (its correction section, on the board
  * `--board` or `correction.board` names), as simulator steps and controller settings.
  */
-function designedInstallationBank(spec: ReturnType<typeof parseInstallation>, installation: Installation, boardOption: string | undefined): { bank: SwitchingFromBank; board: string | undefined } {
+function designedInstallationBank(
+  spec: ReturnType<typeof parseInstallation>,
+  installation: Installation,
+  boardOption: string | undefined,
+): { bank: SwitchingFromBank; board: string | undefined; measuredAt: string | undefined } {
   const { board: fileBoard, ...study } = spec.correction ?? {};
   if (!study.arrangement)
     throw new UsageError(
@@ -52,15 +56,17 @@ function designedInstallationBank(spec: ReturnType<typeof parseInstallation>, in
     );
   if (fileBoard !== undefined) installationBoardIndex(installation, fileBoard, 'correction.board');
   const board = boardOption ?? fileBoard;
-  let selection;
+  let studied;
   try {
-    selection = correctInstallation(installation, study, board === undefined ? {} : { board }).report.selection;
+    studied = correctInstallation(installation, study, board === undefined ? {} : { board });
   } catch (error) {
     throw inFileSection(error);
   }
+  const selection = studied.report.selection;
   if (!selection?.steps.length || !selection.controller)
     throw new UsageError('--correction-bank: the correction study builds no switched bank for this board (run trivar correct to see why)');
-  return { bank: switchingFromBank(selection.steps, selection.controller), board };
+  // The controller reads where the study's target is measured (target.measuredAt), as trivar correct sets it up.
+  return { bank: switchingFromBank(selection.steps, selection.controller), board, measuredAt: studied.measuredAt };
 }
 
 /** Options that need interval data, refused beside scenarios rather than left unused. */
@@ -136,6 +142,7 @@ export async function computeInstallationProfileStudy(
         bank: options.bank ?? false,
         ...(bankBoard !== undefined ? { bankBoard } : {}),
         ...(designed ? { designedBank: designed.bank } : {}),
+        ...(designed?.measuredAt !== undefined ? { measuredAt: designed.measuredAt, measuredAtPath: 'correction.target.measuredAt' } : {}),
         ...(options.pf !== undefined ? { targetPf: options.pf } : {}),
         onProgress: (stage, done, total) => progress.stage(stage === 'solve' ? 'solving' : 'bank', total, done),
       },

@@ -88,6 +88,11 @@ export function renderInstallationProfileReport(r: InstallationProfileResult, cu
   ];
   if (r.bank && bankBoard) {
     parts.push(section(`Automatic bank on ${r.bank.board} over the profile`), bankLines({ bank: r.bank, before: bankBoard.before }, label));
+    const meter = r.bank.meter;
+    if (meter)
+      parts.push(
+        `  the controller measures ${meter.point === 'origin' ? "at the origin (the supply's terminals, before the service cable)" : `at the incomer of ${meter.point}`}, not at ${r.bank.board}: billing power factor there ${fixed(meter.before.energy.billingPf, 3)} → ${fixed(meter.after.energy.billingPf, 3)}, lagging kvarh ${Math.round(meter.before.energy.kvarhLagging).toLocaleString('en-US')} → ${Math.round(meter.after.energy.kvarhLagging).toLocaleString('en-US')}`,
+      );
     if (bankBoard !== main)
       parts.push(
         `  at the supply (${main.board}): billing power factor ${fixed(main.before.energy.billingPf, 3)} → ${fixed(main.after!.energy.billingPf, 3)}; peak line current ${fixed(Math.max(...main.before.conductors.filter((c) => c.conductor !== 'N').map((c) => c.maxA)), 1)} A → ${fixed(Math.max(...main.after!.conductors.filter((c) => c.conductor !== 'N').map((c) => c.maxA)), 1)} A`,

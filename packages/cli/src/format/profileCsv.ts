@@ -18,6 +18,9 @@ export function summaryCsv(r: ProfileResult, label: PhaseLabeller = labellerOf(r
 export function installationSummaryCsv(r: InstallationProfileResult, label: PhaseLabeller = labellerOf(r.phaseNames)): string {
   const rows: (string | number | null)[][] = [['board', 'figure', 'where', 'before', 'after', 'unit']];
   for (const b of r.boards) for (const row of summaryRows(b.before, b.after, r.bank?.board === b.board ? r.bank.steps : [], label)) rows.push([b.board, ...row]);
+  // The origin is no board of the file: its rows only when the bank's controller measured there.
+  const meter = r.bank?.meter;
+  if (meter?.point === 'origin') for (const row of summaryRows(meter.before, meter.after, [], label)) rows.push(['origin', ...row]);
   return rows.map((row) => row.map(cell).join(',')).join('\n') + '\n';
 }
 
@@ -76,13 +79,17 @@ export function intervalCsv(study: ProfileStudy, label: PhaseLabeller = labeller
 
 /** intervalCsv for an installation: the same columns for every board, each headed "<board>: ". */
 export function installationIntervalCsv(study: InstallationProfileStudy, nominalLineToNeutralV: number, label: PhaseLabeller = labellerOf(study.result.phaseNames)): string {
-  const boards = study.result.boards.map((b) => b.board);
+  // The origin (where a bank's controller may measure) goes first, as it comes before the main board.
+  const origin = study.meter?.point === 'origin' ? study.meter : null;
+  const boards = [...(origin ? ['origin'] : []), ...study.result.boards.map((b) => b.board)];
+  const before = [...(origin ? [origin.before] : []), ...study.before];
+  const after = study.after ? [...(origin ? [origin.after] : []), ...study.after] : null;
   const names = phaseNamesOf(study.before[0]!, label);
-  const head = ['time', ...boards.flatMap((b) => columnSet(names, `${b}: `, '')), ...(study.after ? ['bank kvar', ...boards.flatMap((b) => columnSet(names, `${b}: `, ' with bank'))] : [])];
+  const head = ['time', ...boards.flatMap((b) => columnSet(names, `${b}: `, '')), ...(after ? ['bank kvar', ...boards.flatMap((b) => columnSet(names, `${b}: `, ' with bank'))] : [])];
   const out: string[] = [head.map(cell).join(',')];
   for (let i = 0; i < study.before[0]!.count; i++) {
-    let line = [study.label(i), ...study.before.map((f) => figuresRow(f, i, nominalLineToNeutralV))].join(',');
-    if (study.after) line += `,${study.connectedKvar![i]!.toFixed(1)},${study.after.map((f) => figuresRow(f, i, nominalLineToNeutralV)).join(',')}`;
+    let line = [study.label(i), ...before.map((f) => figuresRow(f, i, nominalLineToNeutralV))].join(',');
+    if (after) line += `,${study.connectedKvar![i]!.toFixed(1)},${after.map((f) => figuresRow(f, i, nominalLineToNeutralV)).join(',')}`;
     out.push(line);
   }
   return out.join('\n') + '\n';

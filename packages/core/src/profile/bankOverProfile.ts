@@ -19,6 +19,11 @@ export interface BankOverProfileInput {
   readonly board: Board;
   /** That board's figures without the bank. */
   readonly before: IntervalFigures;
+  /**
+   * Figures without the bank where the target is measured, when that is not the bank's board (`measuredAt`):
+   * steps sized from the profile cover the need there. @defaultValue `before`
+   */
+  readonly meterBefore?: IntervalFigures;
   readonly profile?: ProfileSpec;
   readonly intervalMs: number;
   readonly label: (i: number) => string;
@@ -49,7 +54,7 @@ export function bankOverProfile(input: BankOverProfileInput, options: Pick<Profi
   if (designed) steps = designed.steps;
   else if (b?.steps) steps = b.steps.map((s) => ({ kvar: s.kvar, channel: s.phase ?? 'ABC' }));
   else {
-    const sizing = sizeBankSteps(board, before, {
+    const sizing = sizeBankSteps(board, input.meterBefore ?? before, {
       targetPf: settings.targetPf,
       coverShare: settings.coverShare!,
       stepCount: b?.stepCount ?? PROFILE_DEFAULTS.stepCount,
@@ -76,7 +81,7 @@ export function bankOverProfile(input: BankOverProfileInput, options: Pick<Profi
       for (let k = 0; k < board.phases.length; k++) rise[i] = Math.max(rise[i]!, run.figures.phaseV[k]![i]! - before.phaseV[k]![i]!);
     const worstRise = maximumOf(rise);
     const { upperPf, ...rest } = settings;
-    const belowTarget = upperPf !== undefined && steps.length && steps.every((x) => x.channel === 'ABC') ? hoursBelowTarget(run.figures, settings.targetPf, upperPf, Math.min(...steps.map((x) => x.kvar)), input.intervalMs) : null;
+    const belowTarget = upperPf !== undefined && steps.length && steps.every((x) => x.channel === 'ABC') ? hoursBelowTarget(run.meterFigures ?? run.figures, settings.targetPf, upperPf, Math.min(...steps.map((x) => x.kvar)), input.intervalMs) : null;
     const bank: ProfileBankResult = {
       source,
       sizedFromProfile: source === 'profile',

@@ -57,6 +57,13 @@ export const profileBankSchema = z
     delaySeconds: nonNegative.max(3600).optional().describe('time a need must persist before a step switches; default 30 s'),
     reconnectSeconds: nonNegative.max(3600).optional().describe('minimum time a step stays off before reconnecting (discharge); default 60 s'),
     perPhase: z.boolean().optional().describe('size single-phase steps per phase instead of three-phase steps; default false'),
+    measuredAt: z
+      .string()
+      .min(1)
+      .optional()
+      .describe(
+        "installation files: where the controller measures: origin (the supply's terminals, where the service cable starts) or a board the bank's board is fed through (at its incomer); default the bank's own board. The correction study's bank (--correction-bank) reads where its target is measured instead (correction.target.measuredAt)",
+      ),
   })
   .describe('an automatic capacitor bank simulated over the profile');
 

@@ -12,6 +12,8 @@ import { createBankController, type SwitchingSettings, type SwitchedStep, type S
 
 export interface BankRun {
   readonly figures: IntervalFigures;
+  /** What the controller read, where that is not the bank's board (SwitchBankInput.meter). */
+  readonly meterFigures?: IntervalFigures;
   /** Connected switched kvar (nominal) during each interval; the fixed part comes on top. */
   readonly connectedKvar: Float64Array;
   readonly closings: readonly number[];
@@ -62,6 +64,11 @@ export interface SwitchBankInput {
   readonly board: Board;
   /** The controlled board's per-interval figures, which `solve` fills. */
   readonly figures: IntervalFigures;
+  /**
+   * Figures `solve` fills at the point the controller measures, when that is not the bank's board's incomer
+   * (a target measured upstream, `measuredAt`). @defaultValue `figures`
+   */
+  readonly meter?: IntervalFigures;
   readonly utcMs: Float64Array;
   readonly intervalMs: number;
   readonly steps: readonly SwitchedStep[];
@@ -95,6 +102,7 @@ export function simulateBank(input: SimulateBankInput): BankRun {
  */
 export function switchBank(input: SwitchBankInput, prepare: (extraEdges: BatchEdge[]) => BankSolver): BankRun {
   const { board, steps, figures } = input;
+  const read = input.meter ?? figures;
   const fixed = input.fixed ?? [];
   const layout = [...steps, ...fixed].map((s) => stepEdges(board, s.channel));
   const solver = prepare(layout.flat().map((x) => x.edge));
@@ -130,14 +138,14 @@ export function switchBank(input: SwitchBankInput, prepare: (extraEdges: BatchEd
         let w = 0;
         let q = 0;
         for (let k = 0; k < board.phases.length; k++) {
-          w += figures.phaseW[k]![i]!;
-          q += figures.phaseVar[k]![i]!;
+          w += read.phaseW[k]![i]!;
+          q += read.phaseVar[k]![i]!;
         }
         return { w, var: q };
       }
       const k = phaseIndex.get(channel)!;
-      return { w: figures.phaseW[k]![i]!, var: figures.phaseVar[k]![i]! };
+      return { w: read.phaseW[k]![i]!, var: read.phaseVar[k]![i]! };
     });
   }
-  return { figures, connectedKvar, closings: [...controller.closings], openings: [...controller.openings], path: solver.path };
+  return { figures, ...(input.meter ? { meterFigures: input.meter } : {}), connectedKvar, closings: [...controller.closings], openings: [...controller.openings], path: solver.path };
 }

@@ -4,14 +4,18 @@
  * each board's voltages judged against its own limits, a sub-board's currents
  * being those of its incoming feeder — and the supply's energy and billing at
  * the main board. An automatic bank, when asked for, sits on one board; its
- * controller measures that board's incomer and every board is summarised again
- * with it in.
+ * controller measures that board's incomer — or the metering point its target
+ * names (`measuredAt`: the origin, solved as the installation with a load-free
+ * board at the supply's terminals, or a board upstream) — and every board is
+ * summarised again with it in.
  */
-import type { Installation, BoardLoad } from '../board/boardModel.js';
+import type { Board, Installation, BoardLoad } from '../board/boardModel.js';
+import { InputError } from '../errors.js';
+import { meteringPlace, meteringPointIssues, ORIGIN_POINT } from '../correction/meteringPoint.js';
 import { conventionsOf } from '../board/conventions/boardConventions.js';
 import type { PhaseNaming } from '../board/conventions/phaseNames.js';
 import { installationBoardIndex } from '../correction/correctInstallation.js';
-import { boardOfInstallation } from '../network/installationModel.js';
+import { boardOfInstallation, installationOf } from '../network/installationModel.js';
 import type { DriverColumns, DriverSpec } from './batchNetwork.js';
 import { bankOverProfile } from './bankOverProfile.js';
 import type { SequenceReport } from './checkIntervalSequence.js';
@@ -42,6 +46,22 @@ export interface InstallationProfileInput {
 export interface InstallationProfileOptions extends Pick<ProfileStudyOptions, 'timeZone' | 'bank' | 'targetPf' | 'designedBank' | 'onProgress'> {
   /** The board the bank goes on (by name). @defaultValue the main board */
   readonly bankBoard?: string;
+  /**
+   * Where the controller measures: `origin` or a board the bank's board is fed through (see
+   * correction/meteringPoint.ts). @defaultValue profile.bank.measuredAt for a bank sized or written in the
+   * profile, else the bank's own board
+   */
+  readonly measuredAt?: string;
+  /** The field or option `measuredAt` came from, for its error. @defaultValue 'profile.bank.measuredAt' */
+  readonly measuredAtPath?: string;
+}
+
+/** Where the controller measured, when not at the bank's board: the point and its summaries without and with the bank. */
+export interface BankMeter {
+  /** `origin`, or the name of the board at whose incomer it measures. */
+  readonly point: string;
+  readonly before: ProfileSummary;
+  readonly after: ProfileSummary;
 }
 
 export interface InstallationProfileBoard {
@@ -65,8 +85,11 @@ export interface InstallationProfileResult {
   readonly undriven: { readonly loads: readonly string[]; readonly atRating: boolean } | null;
   /** Board number order (main first). */
   readonly boards: readonly InstallationProfileBoard[];
-  /** The bank and its run, on the board named; its `after` is that board's summary with the bank. */
-  readonly bank: (ProfileBankResult & { readonly board: string }) | null;
+  /**
+   * The bank and its run, on the board named; its `after` is that board's summary with the bank. `meter`:
+   * where the controller measured when that is not the bank's board (its sizing and `belowTarget` are read there).
+   */
+  readonly bank: (ProfileBankResult & { readonly board: string; readonly meter: BankMeter | null }) | null;
   readonly cautions: readonly string[];
 }
 
@@ -78,7 +101,25 @@ export interface InstallationProfileStudy {
   readonly after: readonly IntervalFigures[] | null;
   /** Switched kvar connected in each interval (nominal; the fixed part on top); null without a bank. */
   readonly connectedKvar: Float64Array | null;
+  /** Where the controller measured, when not at the bank's board: per-interval figures there without and with the bank. */
+  readonly meter: { readonly point: string; readonly before: IntervalFigures; readonly after: IntervalFigures } | null;
   readonly label: (i: number) => string;
+}
+
+/**
+ * Where the bank's controller measures when that is not its own board: the point, the board number it is
+ * read at, and for the origin the installation with a board there (meteringPoint.ts); null at the bank's board.
+ * @throws {InputError} naming the field (or option) of a point that is neither the origin nor upstream of the bank
+ */
+function meterOf(bankBoard: Board, input: InstallationProfileInput, options: InstallationProfileOptions): { point: string; index: number; frame: Installation | null } | null {
+  if (!options.bank && !options.designedBank) return null;
+  const point = options.measuredAt ?? (options.designedBank ? undefined : input.profile?.bank?.measuredAt);
+  const issues = meteringPointIssues(bankBoard, point, options.measuredAtPath ?? 'profile.bank.measuredAt');
+  if (issues.length) throw new InputError(issues, 'the point the bank\'s controller measures at does not fit the installation');
+  const place = meteringPlace(bankBoard, point);
+  if (!place) return null;
+  if (place.point !== ORIGIN_POINT) return { point: place.point, index: place.meterIndex, frame: null };
+  return { point: place.point, index: place.meterIndex, frame: installationOf(place.inFrame(bankBoard)).installation };
 }
 
 export function studyInstallationProfile(input: InstallationProfileInput, options: InstallationProfileOptions = {}): InstallationProfileStudy {
@@ -99,30 +140,55 @@ export function studyInstallationProfile(input: InstallationProfileInput, option
   const net = compileInstallationBatch(installation, input.loads, input.loadBoards, input.drivers);
   solveInstallationBatch(net, input.columns, before, { onProgress: (d) => options.onProgress?.('solve', d, n) });
 
+  const meter = meterOf(boards[bankAt]!, input, options);
+  // At the origin the circuit gains a load-free board at the supply's terminals (board 0): every board one on.
+  const frame = meter?.frame ?? installation;
+  const shift = frame === installation ? 0 : 1;
+  const frameBoards = input.loadBoards.map((b) => b + shift);
+  let meterBefore: IntervalFigures | undefined;
+  let meterContext: SummaryContext | undefined;
+  if (meter) {
+    if (shift) {
+      const framed = allocateBoardFigures(frame, n);
+      solveInstallationBatch(compileInstallationBatch(frame, input.loads, frameBoards, input.drivers), input.columns, framed);
+      meterBefore = framed[0]!;
+      // The origin is priced as the supply is: the main board's band and tariff, the origin's own (unrated) conductors.
+      meterContext = { ...contexts[0]!, board: boardOfInstallation(frame, 0) };
+    } else {
+      meterBefore = before[meter.index]!;
+      meterContext = contexts[meter.index]!;
+    }
+  }
+  let meterAfter: IntervalFigures | null = null;
+
   let after: IntervalFigures[] | null = null;
   const withBank = bankOverProfile(
     {
       board: boards[bankAt]!,
       before: before[bankAt]!,
+      ...(meterBefore ? { meterBefore } : {}),
       intervalMs: input.intervalMs,
       label,
       ...(input.profile ? { profile: input.profile } : {}),
       summarise: (f) => summariseFigures(f, contexts[bankAt]!),
       simulate: (steps, fixed, settings) => {
-        const figures = allocateBoardFigures(installation, n);
-        after = figures;
-        return switchBank({ board: boards[bankAt]!, figures: figures[bankAt]!, utcMs: input.utcMs, intervalMs: input.intervalMs, steps, fixed, settings }, (extra) => {
-          const withSteps = compileInstallationBatch(installation, input.loads, input.loadBoards, input.drivers, extra.map((e) => ({ ...e, board: bankAt })));
+        const figures = allocateBoardFigures(frame, n);
+        after = figures.slice(shift);
+        meterAfter = meter ? figures[meter.index]! : null;
+        const at = bankAt + shift;
+        const run = { board: boards[bankAt]!, figures: figures[at]!, ...(meterAfter ? { meter: meterAfter } : {}), utcMs: input.utcMs, intervalMs: input.intervalMs, steps, fixed, settings };
+        return switchBank(run, (extra) => {
+          const withSteps = compileInstallationBatch(frame, input.loads, frameBoards, input.drivers, extra.map((e) => ({ ...e, board: at })));
           const kernel = createInstallationKernel(withSteps);
           const index = new Map(withSteps.edges.map((e, k) => [`${e.board}|${e.from}|${e.to}|${e.vNominal}`, k]));
           return {
             edgeCount: withSteps.edges.length,
             path: 'nodal',
-            edgeIndex: (e) => index.get(`${bankAt}|${e.from}|${e.to}|${e.vNominal}`) ?? -1,
+            edgeIndex: (e) => index.get(`${at}|${e.from}|${e.to}|${e.vNominal}`) ?? -1,
             powersAt: (i, out) => edgePowersAt(withSteps, input.columns, i, out),
             solve: (powers, i) => {
               kernel.solve(powers, i);
-              kernel.states.forEach((s, b) => recordInterval(s, installation.main.sequence, figures[b]!, i));
+              kernel.states.forEach((s, b) => recordInterval(s, frame.main.sequence, figures[b]!, i));
             },
           };
         });
@@ -146,8 +212,15 @@ export function studyInstallationProfile(input: InstallationProfileInput, option
       before: summariseFigures(before[b]!, contexts[b]!),
       after: afterFigures ? summariseFigures((afterFigures as IntervalFigures[])[b]!, contexts[b]!) : null,
     })),
-    bank: withBank ? { board: names[bankAt]!, ...withBank.bank } : null,
+    bank: withBank
+      ? {
+          board: names[bankAt]!,
+          ...withBank.bank,
+          meter: meter && meterBefore && meterAfter && meterContext ? { point: meter.point, before: summariseFigures(meterBefore, meterContext), after: summariseFigures(meterAfter, meterContext) } : null,
+        }
+      : null,
     cautions: PROFILE_CAUTIONS,
   };
-  return { result, utcMs: input.utcMs, before, after: afterFigures, connectedKvar: withBank?.run.connectedKvar ?? null, label };
+  const meterFigures = withBank && meter && meterBefore && meterAfter ? { point: meter.point, before: meterBefore, after: meterAfter as IntervalFigures } : null;
+  return { result, utcMs: input.utcMs, before, after: afterFigures, connectedKvar: withBank?.run.connectedKvar ?? null, meter: meterFigures, label };
 }

@@ -3,6 +3,7 @@
  * summaries before any correction, and optionally an automatic bank simulated
  * over the same intervals with the summary after it.
  */
+import { InputError, inputIssue } from '../errors.js';
 import type { Board } from '../board/boardModel.js';
 import { conventionsOf } from '../board/conventions/boardConventions.js';
 import type { PhaseNaming } from '../board/conventions/phaseNames.js';
@@ -91,7 +92,7 @@ export interface ProfileBankResult {
   readonly voltageRisePercent: number;
   readonly voltageRiseAt: string;
   /**
-   * Board-total PF below the target while importing, hours; and of those, the hours in which even
+   * Board-total PF below the target while importing (where the controller measures), hours; and of those, the hours in which even
    * the smallest step would have carried the PF past the band's upper limit (steps too coarse for
    * the band at that load). Null for a bank with single-phase steps or without an upper limit.
    */
@@ -209,6 +210,13 @@ export function studyProfile(input: ProfileStudyInput, options: ProfileStudyOpti
   }
   const beforeSummary = summariseFigures(before, ctx);
 
+  // On a board file the controller reads the board's own incomer; a metering point upstream needs the installation's circuit.
+  const point = options.bank && !options.designedBank ? input.profile?.bank?.measuredAt : undefined;
+  if (point !== undefined && point !== board.name)
+    throw new InputError(
+      [inputIssue('not_applicable', 'profile.bank.measuredAt', `"${board.name}" (the board itself) on a board file; to measure at the origin, write the board as an installation file with this one board under boards:`, point)],
+      'the point the bank\'s controller measures at does not fit a board file',
+    );
   const withBank = bankOverProfile(
     {
       board,
