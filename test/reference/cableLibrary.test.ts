@@ -71,7 +71,7 @@ describe('cable reactance', () => {
     const inSteel = conductorReactance(size, 60, 'steel')!;
     expect(inSteel.ohmPerKm).toBeCloseTo(steel * kft, 12);
     expect(inSteel.source).toContain('steel conduit');
-    // The steel wall adds 19–27 % to every row (a check on the transcription of both columns).
+    // The steel wall adds 19–27 % to every row (a check that both columns were copied correctly).
     expect(steel / pvc).toBeGreaterThan(1.19);
     expect(steel / pvc).toBeLessThan(1.27);
   });
