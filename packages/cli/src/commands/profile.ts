@@ -10,7 +10,6 @@ import {
   switchingFromBank,
   type SwitchingFromBank,
   driverColumns,
-  isKnownTimeZone,
   normaliseBoard,
   parseBoard,
   planColumns,
@@ -30,6 +29,7 @@ import { inFileSection } from './correct.js';
 import { assertNotInput, writeOutputFile } from '../outputFiles.js';
 import { writeResult } from '../writeResult.js';
 import { readCsvHeader, readIntervalRows } from '../read/intervalCsv.js';
+import { timeZoneOption } from '../read/timeZoneOption.js';
 import { renderProfileReport, renderScenarioReport } from '../format/profileReport.js';
 import { intervalCsv, summaryCsv } from '../format/profileCsv.js';
 import { CHART_FILES, writeProfileCharts } from '../format/profileChartFiles.js';
@@ -88,8 +88,7 @@ export async function computeProfileStudy(spec: ReturnType<typeof parseBoard>, d
   if (options.correctionBank && options.pf !== undefined)
     throw new UsageError('--pf sets the target of a bank sized from the profile; the correction study\'s bank keeps the target of the board file\'s correction section');
   const designedBank = options.correctionBank ? designedBankOf(spec, board) : undefined;
-  const zone = options.timeZone ?? 'UTC';
-  if (!isKnownTimeZone(zone)) throw new UsageError(`--time-zone: "${zone}" is not a time zone this system knows (expected an IANA name such as Europe/Lisbon or America/Chicago)`);
+  const zone = timeZoneOption(options.timeZone);
   const plan = planColumns(board, readCsvHeader(data), { ...(spec.profile?.groups ? { groups: spec.profile.groups } : {}), undrivenAtRating: options.unlistedAtRating ?? false });
   const progress = startProgress(io);
   // Stop the bar on every way out, or its timer keeps the process alive and the cursor hidden.
@@ -139,8 +138,7 @@ export async function runProfile(file: string, options: ProfileCommandOptions, i
   const board = normaliseBoard(spec);
   // Tables, CSV columns and chart series name lines and phases the way the board file does.
   const label = labellerOf(conventionsOf(board).phaseNames);
-  const zone = options.timeZone ?? 'UTC';
-  if (!isKnownTimeZone(zone)) throw new UsageError(`--time-zone: "${zone}" is not a time zone this system knows (expected an IANA name such as Europe/Lisbon or America/Chicago)`);
+  timeZoneOption(options.timeZone); // a bad --time-zone is refused even where no data is read
   if (!options.data) {
     if (!spec.profile?.scenarios) throw new UsageError('give the interval data with --data <file.csv>, or scenarios under profile.scenarios in the board file (see trivar profile --help)');
     const result = studyScenarios(board, spec.profile);

@@ -11,7 +11,6 @@ import {
   type Installation,
   type SwitchingFromBank,
   installationBoardIndex,
-  isKnownTimeZone,
   labellerOf,
   normaliseInstallation,
   parseInstallation,
@@ -26,6 +25,7 @@ import type { CliIo } from '../io.js';
 import { UsageError } from '../exitCodes.js';
 import { writeResult } from '../writeResult.js';
 import { readCsvHeader, readIntervalRows } from '../read/intervalCsv.js';
+import { timeZoneOption } from '../read/timeZoneOption.js';
 import { renderInstallationProfileReport, renderInstallationScenarioReport } from '../format/installationProfileReport.js';
 import { startProgress } from '../progress.js';
 import { assertNotInput, writeOutputFile } from '../outputFiles.js';
@@ -112,8 +112,7 @@ export async function computeInstallationProfileStudy(
   installationBoardIndex(installation, options.board, '--board');
   const designed = options.correctionBank ? designedInstallationBank(spec, installation, options.board) : undefined;
   const bankBoard = options.board ?? designed?.board;
-  const zone = options.timeZone ?? 'UTC';
-  if (!isKnownTimeZone(zone)) throw new UsageError(`--time-zone: "${zone}" is not a time zone this system knows (expected an IANA name such as Europe/Lisbon or America/Chicago)`);
+  const zone = timeZoneOption(options.timeZone);
   const plan = planInstallationColumns(installation, readCsvHeader(data), {
     ...(spec.profile?.groups ? { groups: spec.profile.groups } : {}),
     undrivenAtRating: options.unlistedAtRating ?? false,

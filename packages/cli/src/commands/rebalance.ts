@@ -7,7 +7,6 @@ import {
   conditionsFromInstallationIntervals,
   conditionsFromIntervals,
   driverColumns,
-  isKnownTimeZone,
   planColumns,
   planDrivers,
   planInstallationColumns,
@@ -31,6 +30,7 @@ import {
   type RebalanceReport,
 } from '@trivar/core';
 import { readCsvHeader, readIntervalRows } from '../read/intervalCsv.js';
+import { timeZoneOption } from '../read/timeZoneOption.js';
 import type { CliIo } from '../io.js';
 import { UsageError } from '../exitCodes.js';
 import { renderRebalanceReport } from '../format/rebalanceReport.js';
@@ -79,8 +79,7 @@ function sameFile(a: string, b: string): boolean {
 
 /** The interval table of `data` read against a column plan, with the command's time zone and spread checked. */
 async function readIntervals<P extends Parameters<typeof planDrivers>[0]>(plan: P, data: string, o: RebalanceCommandOptions) {
-  const zone = o.timeZone ?? 'UTC';
-  if (!isKnownTimeZone(zone)) throw new UsageError(`--time-zone: "${zone}" is not a time zone this system knows (expected an IANA name such as Europe/Lisbon or America/Chicago)`);
+  const zone = timeZoneOption(o.timeZone);
   if (o.spread !== undefined && !(Number.isInteger(o.spread) && o.spread >= 0 && o.spread <= 50))
     throw new UsageError(`--spread: expected a whole number from 0 to 50 (received ${o.spread})`);
   const raw = await readIntervalRows(data, plan, { timeZone: zone }, Math.min(2, availableParallelism()));
