@@ -19,6 +19,7 @@ import { NumericalError } from '../errors.js';
 import type { ComplexValue } from '../complex.js';
 import { leastDeterminedUnknown, solveComplexSystem } from '../_internal/complexLu.js';
 import { analysePattern, factorInPlace, forwardInOrder, substituteInOrder, type SparsePattern } from '../_internal/sparseComplexLu.js';
+import { factorSolveFourInPlace, withPositionalSlots } from '../_internal/fourUnknownLu.js';
 import { factorRealInPlace, invertReal3InPlace, multiplyReal3, solveRealFactored } from '../_internal/denseRealLu.js';
 import { LoadPortReduction } from './loadPortReduction.js';
 import { STEPS_CONTINUE, STEPS_DECLINED, STEPS_SETTLED, ThreePairPortSteps } from './threePairPortSteps.js';
@@ -142,6 +143,7 @@ export class CompiledNetwork {
   private readonly columnRe: Float64Array;
   private readonly columnIm: Float64Array;
   private factored = false;
+  private readonly fourUnknowns: boolean;
   /**
    * The network reduced to its load ports, where the Newton path solves through them
    * (null: it assembles and factorises). Built at compile time, so that every solve of
@@ -229,7 +231,9 @@ export class CompiledNetwork {
         pair(b.from, b.to);
       }
     });
-    this.pattern = analysePattern(size, pairs);
+    // Four unknowns (a three-phase four-wire board): the written-out solve of fourUnknownLu.ts.
+    this.fourUnknowns = size === 4;
+    this.pattern = this.fourUnknowns ? withPositionalSlots(analysePattern(size, pairs)) : analysePattern(size, pairs);
     const p = this.pattern;
     this.nodeAtPosition = Int32Array.from(p.order, (u) => this.nodeOfUnknown[u]!);
     this.diagonalSlots = new Int32Array(size);
@@ -500,11 +504,12 @@ export class CompiledNetwork {
       const size = Math.abs(re[d]!) + Math.abs(im[d]!);
       if (size > scale) scale = size;
     }
-    const failed = factorInPlace(p, re, im, SPARSE_PIVOT_FLOOR, scale);
+    const floor = SPARSE_PIVOT_FLOOR * scale;
+    const failed = this.fourUnknowns ? factorSolveFourInPlace(re, im, this.xRe, this.xIm, floor * floor) : factorInPlace(p, re, im, SPARSE_PIVOT_FLOOR, scale);
     this.factored = failed < 0;
     // The unknowns stay in elimination order (`x`), which saves permuting them back each solve.
     if (failed >= 0) this.solveDense();
-    else substituteInOrder(p, re, im, this.xRe, this.xIm, 0);
+    else if (!this.fourUnknowns) substituteInOrder(p, re, im, this.xRe, this.xIm, 0);
     this.scatterVoltages();
   }
 
