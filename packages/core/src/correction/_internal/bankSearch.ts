@@ -270,6 +270,19 @@ function leastTierFrom(baseF: number, need: Need): number {
 }
 
 /**
+ * Bound for every build on `choice`, before its counts are worked out: each puts at least one
+ * count of it on every branch, so no branch is below the tier capacitance from one count up can
+ * reach; with trims (`leastTrimKvar` finite), at least one trim unit more is bought.
+ */
+function choiceKeyBound(needs: readonly Need[], rules: SetRules, choice: UnitChoice, leastTrimKvar: number | null): number[] {
+  let worst = 0;
+  for (let i = 0; i < needs.length; i++) worst = Math.max(worst, leastTierFrom(choice.elementF, needs[i]!));
+  const kvar = 1 * choice.unitsPerCount * choice.unit.ratedKvar;
+  const cost = leastTrimKvar === null ? kvar + rules.unitCostKvar * choice.unitsPerCount : kvar + leastTrimKvar + rules.unitCostKvar * (choice.unitsPerCount + 1);
+  return [0, 0, Number(worst === 5), 0, worst, 0, 0, cost, leastNegativeSteps(rules, needs.length)];
+}
+
+/**
  * Whether trims on top of `balanced` may beat `bestKey`, before choosing them. A build with trims
  * has them on some branches S (at least one); the key is bounded for each S and the build skipped
  * only if no S may win. A branch in S may reach any tier more capacitance can give it
@@ -428,13 +441,19 @@ export function searchSet(
   };
   // Equal steps first; trims only where no equal build fits every branch's window.
   consider(evaluate(needs, rules, null, []));
-  for (const choice of balancedChoices)
+  for (const choice of balancedChoices) {
+    if (pruning && !mayWin(choiceKeyBound(equalNeeds, rules, choice, null))) continue;
     for (const count of balancedCounts(choice))
       if (!pruning || mayWin(equalKeyBound(equalNeeds, rules, choice, count))) consider(evaluate(equalNeeds, rules, { choice, count }, []));
+  }
   const equalFits = best !== null && Math.max(...(best as SetBuild).tiers) === 0 && !Object.values((best as SetBuild).violations).some(Boolean);
   if (!equalFits && trimChoices.some((c) => c.length)) {
     withTrims(null);
-    for (const choice of balancedChoices) for (const count of balancedCounts(choice)) withTrims({ choice, count });
+    const leastAnyTrimKvar = Math.min(...leastTrimKvar);
+    for (const choice of balancedChoices) {
+      if (pruning && !mayWin(choiceKeyBound(needs, rules, choice, leastAnyTrimKvar))) continue;
+      for (const count of balancedCounts(choice)) withTrims({ choice, count });
+    }
   }
   return best!;
 }
