@@ -100,9 +100,19 @@ function miss(designF: number, need: Need, tier: number): number {
   return 0;
 }
 
-/** Unit counts that put `f` at each end of a window, for a unit adding `per` each. */
-const countsNear = (values: readonly (number | null)[], per: number): number[] =>
-  values.flatMap((f) => (f === null || f <= 0 ? [] : [Math.floor(f / per + 1e-9), Math.ceil(f / per - 1e-9)]));
+/**
+ * Unit counts that put `f` at each end of a window, for a unit adding `per` each
+ * (a plain loop: a flatMap's array per value cost more than the rest of a pruned search).
+ */
+function countsNear(values: readonly (number | null)[], per: number): number[] {
+  const counts: number[] = [];
+  for (let i = 0; i < values.length; i++) {
+    const f = values[i]!;
+    if (f === null || f <= 0) continue;
+    counts.push(Math.floor(f / per + 1e-9), Math.ceil(f / per - 1e-9));
+  }
+  return counts;
+}
 
 /**
  * Near-equal split of `count` units into the most steps the outputs allow with
@@ -207,6 +217,117 @@ function betterOfFour(a0: number, a1: number, a2: number, a3: number, b0: number
   return false;
 }
 
+/**
+ * Whether the search may skip builds on lower bounds of their keys: the bounds below hold for
+ * windows ordered as `selectBankUnits` makes them (0 ≤ nominal ≤ min; max ≤ limit, both known or
+ * neither) and for costs that only grow with units; anything else is searched build by build.
+ */
+const boundable = (needs: readonly Need[], rules: SetRules, choices: readonly UnitChoice[]) =>
+  rules.unitCostKvar >= 0 &&
+  choices.every((c) => c.unit.ratedKvar >= 0 && c.elementF > 0) &&
+  needs.every((n) => 0 <= n.nominalF && n.nominalF <= n.minF && (n.maxF === null ? n.limitF === null : n.limitF !== null && 0 <= n.maxF && n.maxF <= n.limitF));
+
+/*
+ * Lower bounds of `rankKey`, entry by entry. A build whose bound is not `better` than the best key
+ * so far is not better itself (if it were, the first entry where it differs would be lower, and the
+ * bound's entries are no higher), so skipping it leaves the search's answer as it was.
+ * Entries not worked out here are bounded by their least value: 0, and for −steps the most steps
+ * a set can have (`splitSteps` uses at most the outputs left, or one step, besides one per trim).
+ */
+const leastNegativeSteps = (rules: SetRules, branches: number) => -Math.max(rules.outputs, 1 + branches);
+
+/** Bound for an equal build of `count` units: exact on every entry but the step rules. */
+function equalKeyBound(needs: readonly Need[], rules: SetRules, choice: UnitChoice, count: number): number[] {
+  const f = count * choice.elementF;
+  let worst = 0;
+  let past = 0;
+  let missSum = 0;
+  for (let i = 0; i < needs.length; i++) {
+    const tier = tierOf(f, needs[i]!);
+    worst = Math.max(worst, tier);
+    if (tier === 5) past = 1;
+    missSum = missSum + miss(f, needs[i]!, tier);
+  }
+  const units = count * choice.unitsPerCount;
+  const cost = count * choice.unitsPerCount * choice.unit.ratedKvar + rules.unitCostKvar * units;
+  return [Number(count > rules.maxUnitsPerBranch), 0, past, 0, worst, Math.round(missSum * 20), 0, cost, leastNegativeSteps(rules, needs.length)];
+}
+
+/**
+ * The lowest tier any capacitance from `baseF` up can have: the first of `tierOf`'s tests that
+ * some F ≥ baseF passes (a test asking F ≥ x and F ≤ bound + eps passes where max(baseF, x) does).
+ */
+function leastTierFrom(baseF: number, need: Need): number {
+  const eps = 1e-9 * Math.max(need.nominalF, need.minF, 1e-30);
+  const underMaxFrom = (x: number) => need.maxF === null || Math.max(baseF, x) <= need.maxF + eps;
+  const underLimitFrom = (x: number) => need.limitF === null || Math.max(baseF, x) <= need.limitF + eps;
+  if (underMaxFrom(need.minF - eps)) return 0;
+  if (underMaxFrom(need.nominalF - eps)) return 1;
+  if (underLimitFrom(need.nominalF - eps)) return 2;
+  if (need.maxF !== null && underMaxFrom(baseF)) return 3;
+  if (need.limitF !== null && underLimitFrom(baseF)) return 4;
+  return need.limitF !== null ? 5 : 6;
+}
+
+/**
+ * Bound for every build on `choice`, before its counts are worked out: each puts at least one
+ * count of it on every branch, so no branch is below the tier capacitance from one count up can
+ * reach; with trims (`leastTrimKvar` finite), at least one trim unit more is bought.
+ */
+function choiceKeyBound(needs: readonly Need[], rules: SetRules, choice: UnitChoice, leastTrimKvar: number | null): number[] {
+  let worst = 0;
+  for (let i = 0; i < needs.length; i++) worst = Math.max(worst, leastTierFrom(choice.elementF, needs[i]!));
+  const kvar = 1 * choice.unitsPerCount * choice.unit.ratedKvar;
+  const cost = leastTrimKvar === null ? kvar + rules.unitCostKvar * choice.unitsPerCount : kvar + leastTrimKvar + rules.unitCostKvar * (choice.unitsPerCount + 1);
+  return [0, 0, Number(worst === 5), 0, worst, 0, 0, cost, leastNegativeSteps(rules, needs.length)];
+}
+
+/**
+ * Whether trims on top of `balanced` may beat `bestKey`, before choosing them. A build with trims
+ * has them on some branches S (at least one); the key is bounded for each S and the build skipped
+ * only if no S may win. A branch in S may reach any tier more capacitance can give it
+ * (`leastTierFrom`), with no miss; one outside stays as the balanced part leaves it. `bestTrim`
+ * puts a trim only where it beats no trim on [below minimum, tier, miss, cost], so never on a
+ * branch that already fits (tier 0) or is past its limit (tier 5: more capacitance keeps it
+ * there, further past). Each trim costs at least its branch's cheapest unit.
+ * @param leastTrimKvar per branch, the least nameplate of its trim units (Infinity: none)
+ */
+function trimsMayWin(needs: readonly Need[], rules: SetRules, balanced: { choice: UnitChoice; count: number } | null, leastTrimKvar: readonly number[], bestKey: readonly number[]): boolean {
+  const n = needs.length;
+  const baseF = balanced ? balanced.count * balanced.choice.elementF : 0;
+  const units = balanced ? balanced.count * balanced.choice.unitsPerCount : 0;
+  const kvar = balanced ? balanced.count * balanced.choice.unitsPerCount * balanced.choice.unit.ratedKvar : 0;
+  const tiers: number[] = [];
+  let open = 0; // branches that may take a trim, as bits
+  for (let i = 0; i < n; i++) {
+    tiers.push(tierOf(baseF, needs[i]!));
+    if (leastTrimKvar[i]! < Infinity && tiers[i] !== 0 && tiers[i] !== 5) open |= 1 << i;
+  }
+  for (let s = open; s > 0; s = (s - 1) & open) {
+    let worst = 0;
+    let past = 0;
+    let missSum = 0;
+    let trimKvar = kvar;
+    let trims = 0;
+    for (let i = 0; i < n; i++) {
+      if (s & (1 << i)) {
+        trimKvar = trimKvar + leastTrimKvar[i]!;
+        trims++;
+        worst = Math.max(worst, leastTierFrom(baseF, needs[i]!));
+        continue;
+      }
+      const tier = tiers[i]!;
+      worst = Math.max(worst, tier);
+      if (tier === 5) past = 1;
+      missSum = missSum + miss(baseF, needs[i]!, tier);
+    }
+    const cost = trimKvar + rules.unitCostKvar * (units + trims);
+    const bound = [0, Number(trims > rules.outputs), past, 0, worst, Math.round(missSum * 20), 0, cost, leastNegativeSteps(rules, n)];
+    if (better(bound, bestKey)) return true;
+  }
+  return false;
+}
+
 /** The best trim on one branch given the balanced capacitance already there (or none). */
 function bestTrim(branch: number, need: Need, baseF: number, choices: readonly UnitChoice[], rules: SetRules, baseUnits: number): TrimBuild | null {
   // Ranked by [step below the minimum, tier, miss in 5 % steps, cost], compared as `better` compares keys.
@@ -269,9 +390,13 @@ export function searchSet(
   trimChoices: readonly (readonly UnitChoice[])[],
   rules: SetRules,
   equalNeeds: readonly Need[] = needs,
+  options: { readonly exhaustive?: boolean } = {},
 ): SetBuild {
   let best: SetBuild | null = null;
   let bestKey: number[] = [];
+  // Skip builds whose key bound cannot beat the best so far (`exhaustive`: judge every build, for tests).
+  const pruning = !options.exhaustive && boundable([...needs, ...equalNeeds], rules, [...balancedChoices, ...trimChoices.flat()]);
+  const mayWin = (bound: number[]) => best === null || better(bound, bestKey);
   const consider = (build: SetBuild) => {
     const k = rankKey(build, build.needs);
     if (!best || better(k, bestKey)) {
@@ -287,12 +412,11 @@ export function searchSet(
     const near = countsNear(edges, choice.elementF);
     // Then multiples of the step counts wanted, so equal steps are within reach; and the
     // largest build within the unit cap is always a candidate (never dropped for being over it).
-    // Each count once, capped, in first-seen order (a Set keeps it), without the arrays a
-    // flatMap of flatMaps builds for every choice of every search.
-    const seen = new Set<number>();
+    // Each count once, capped, in first-seen order (a few dozen at most: a scan beats a Set's hashing).
+    counts = [];
     const put = (c: number) => {
       const capped = Math.min(c, rules.maxUnitsPerBranch);
-      if (capped >= 1) seen.add(capped);
+      if (capped >= 1 && !counts!.includes(capped)) counts!.push(capped);
     };
     for (let i = 0; i < near.length; i++) put(near[i]!);
     for (let i = 0; i < near.length; i++)
@@ -301,11 +425,12 @@ export function searchSet(
         put(Math.ceil(near[i]! / m) * m);
       }
     put(1);
-    counts = Array.from(seen);
     countsOf.set(choice, counts);
     return counts;
   };
+  const leastTrimKvar = needs.map((_, i) => (trimChoices[i] ?? []).reduce((least, c) => Math.min(least, c.unit.ratedKvar), Infinity));
   const withTrims = (balanced: { choice: UnitChoice; count: number } | null) => {
+    if (pruning && best !== null && !trimsMayWin(needs, rules, balanced, leastTrimKvar, bestKey)) return;
     const baseF = balanced ? balanced.count * balanced.choice.elementF : 0;
     const baseUnits = balanced ? balanced.count : 0;
     const trims = needs.flatMap((need, i) => {
@@ -316,11 +441,19 @@ export function searchSet(
   };
   // Equal steps first; trims only where no equal build fits every branch's window.
   consider(evaluate(needs, rules, null, []));
-  for (const choice of balancedChoices) for (const count of balancedCounts(choice)) consider(evaluate(equalNeeds, rules, { choice, count }, []));
+  for (const choice of balancedChoices) {
+    if (pruning && !mayWin(choiceKeyBound(equalNeeds, rules, choice, null))) continue;
+    for (const count of balancedCounts(choice))
+      if (!pruning || mayWin(equalKeyBound(equalNeeds, rules, choice, count))) consider(evaluate(equalNeeds, rules, { choice, count }, []));
+  }
   const equalFits = best !== null && Math.max(...(best as SetBuild).tiers) === 0 && !Object.values((best as SetBuild).violations).some(Boolean);
   if (!equalFits && trimChoices.some((c) => c.length)) {
     withTrims(null);
-    for (const choice of balancedChoices) for (const count of balancedCounts(choice)) withTrims({ choice, count });
+    const leastAnyTrimKvar = Math.min(...leastTrimKvar);
+    for (const choice of balancedChoices) {
+      if (pruning && !mayWin(choiceKeyBound(needs, rules, choice, leastAnyTrimKvar))) continue;
+      for (const count of balancedCounts(choice)) withTrims({ choice, count });
+    }
   }
   return best!;
 }
