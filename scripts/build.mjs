@@ -46,6 +46,26 @@ function coreImportsByModule() {
   };
 }
 
+/**
+ * commander requires node:child_process at load, for subcommands that are programs of their own (trivar
+ * has none); loading it (with net, dgram and the socket code it pulls in) was about 30 M instructions of
+ * every run. commander gets a stand-in whose spawn loads the real module when called.
+ */
+function lazyChildProcessForCommander() {
+  return {
+    name: 'lazy-child-process-for-commander',
+    setup(b) {
+      b.onResolve({ filter: /^(node:)?child_process$/ }, (args) =>
+        /[\\/]commander[\\/]/.test(args.importer) ? { path: 'child_process', namespace: 'trivar-lazy-builtin' } : undefined,
+      );
+      b.onLoad({ filter: /.*/, namespace: 'trivar-lazy-builtin' }, () => ({
+        contents: "module.exports = { spawn: (...args) => require('node:child_process').spawn(...args) };",
+        loader: 'js',
+      }));
+    },
+  };
+}
+
 // The CLI is one bundle, dist/trivar-bundle.js, run by a small loader, dist/trivar.js (src/loader/), through
 // vm.Script with V8's code cache. Node 20 caches no compiled code for ES modules, and as ~60 ESM chunks
 // the CLI spent a third of `trivar correct`'s start-up resolving, reading, compiling and linking them.
@@ -74,7 +94,7 @@ const cli = await build({
   banner: { js: '(function (exports, require, module, __filename, __dirname, __trivarBundleUrl) {"use strict";' },
   footer: { js: '\n})' },
   metafile: true,
-  plugins: [coreImportsByModule()],
+  plugins: [coreImportsByModule(), lazyChildProcessForCommander()],
 });
 // vm.Script gets no module loader: an import() left in the bundle (of a file outside it) could not run.
 for (const [file, output] of Object.entries(cli.metafile.outputs))

@@ -1,7 +1,7 @@
 /** The CLI driven in-process through runCli with a fake outside world. */
 import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
-import { runCli } from '../../packages/cli/src/program.js';
+import { COMMAND_NAMES, createProgram, runCli } from '../../packages/cli/src/program.js';
 import type { CliIo } from '../../packages/cli/src/io.js';
 
 function fakeIo(files: Record<string, string>) {
@@ -43,5 +43,57 @@ describe('runCli in-process', () => {
     const f = fakeIo({});
     expect(await runCli(['solve', 'missing.yaml'], f.io)).toBe(1);
     expect(f.err()).toMatch(/internal error \(a bug in trivar/);
+  });
+});
+
+describe('only the named command is built', () => {
+  it('a run naming a command builds that command alone; without one, every command in the order help lists them', () => {
+    expect(createProgram(fakeIo({}).io).commands.map((c) => c.name())).toEqual([...COMMAND_NAMES]);
+    for (const name of COMMAND_NAMES) expect(createProgram(fakeIo({}).io, undefined, name).commands.map((c) => c.name())).toEqual([name]);
+  });
+  /** What the program with every command prints and returns: the reference runCli's output must match byte for byte. */
+  async function withEveryCommand(argv: string[]) {
+    const f = fakeIo({});
+    let code = 0;
+    try {
+      await createProgram(f.io).parseAsync(argv, { from: 'user' });
+    } catch (error) {
+      // commander's own errors (CommanderError; commander is the CLI package's dependency, not the tests').
+      const commanderCode = (error as { code?: unknown }).code;
+      if (typeof commanderCode !== 'string' || !commanderCode.startsWith('commander.')) throw error;
+      code = ['commander.helpDisplayed', 'commander.version', 'commander.help'].includes(commanderCode) ? 0 : 2;
+    }
+    return { code, out: f.out(), err: f.err() };
+  }
+  const argvs: string[][] = [
+    [],
+    ['--help'],
+    ['-h'],
+    ['help'],
+    ['help', 'correct'],
+    ['help', 'nothing'],
+    ['--version'],
+    ['-V'],
+    ['--bogus'],
+    ['slove', 'x.yaml'],
+    ['corect'],
+    ['Solve', 'x.yaml'],
+    ['x.yaml'],
+    ['solve'],
+    ['solve', 'x.yaml', '--jsno'],
+    ['solve', 'a', 'b'],
+    ['correct', 'x.yaml', '--arrangement', 'star'],
+    ['correct', 'x.yaml', '--pf', '2'],
+    ['check', 'a.yaml'],
+    ['schema', '--bogus'],
+    ['profile', 'x.yaml', '--fill-gaps', 'zero'],
+    ...COMMAND_NAMES.map((name) => [name, '--help']),
+    ...COMMAND_NAMES.map((name) => ['help', name]),
+  ];
+  it.each(argvs.map((argv) => [argv.join(' ') || '(nothing)', argv] as const))('%s: output and exit code as with every command', async (_, argv) => {
+    const f = fakeIo({});
+    const code = await runCli(argv, f.io);
+    expect({ code, out: f.out(), err: f.err() }).toEqual(await withEveryCommand(argv));
+    expect(f.out() + f.err()).not.toBe('');
   });
 });

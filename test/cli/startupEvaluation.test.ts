@@ -6,7 +6,7 @@
  * module counts as evaluated when the innermost code range around it ran.
  */
 import { spawnSync } from 'node:child_process';
-import { mkdtempSync, readdirSync, readFileSync, rmSync } from 'node:fs';
+import { mkdtempSync, readdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
@@ -76,5 +76,27 @@ describe('what the CLI evaluates', () => {
     for (const marker of [BOARD_SCHEMA, YAML, HARMONIC_CORRECTION]) expect(ran(marker), marker).toBe(false);
     const harmonic = runCovered(['correct', 'examples/mill-street-offices.yaml']);
     for (const marker of [BOARD_SCHEMA, HARMONIC_CORRECTION]) expect(harmonic(marker), marker).toBe(true);
+  });
+  it('solve loads neither node:crypto (the code cache is named and checked with zlib) nor child_process (commander gets it when it spawns)', () => {
+    // A preload script reports, at exit, the Node builtins the run loaded.
+    const dir = mkdtempSync(join(tmpdir(), 'trivar-builtins-'));
+    try {
+      const report = join(dir, 'report.cjs');
+      writeFileSync(report, "process.on('exit', () => require('node:fs').writeFileSync(process.env.TRIVAR_TEST_BUILTINS, process.moduleLoadList.join('\\n')));");
+      const out = join(dir, 'builtins.txt');
+      for (const cache of ['cold', 'warm']) {
+        const r = spawnSync(process.execPath, ['--require', report, `${ROOT}packages/cli/bin/trivar.js`, 'solve', 'examples/corner-bakery.yaml'], {
+          cwd: ROOT,
+          encoding: 'utf8',
+          env: { ...process.env, TRIVAR_TEST_BUILTINS: out, TRIVAR_CODE_CACHE_DIR: join(dir, 'cache'), TRIVAR_NO_CODE_CACHE: '' },
+        });
+        expect(r.status, r.stderr).toBe(0);
+        const loaded = readFileSync(out, 'utf8').split('\n');
+        expect(loaded, cache).toContain('NativeModule fs');
+        for (const module of ['NativeModule crypto', 'NativeModule child_process']) expect(loaded, cache).not.toContain(module);
+      }
+    } finally {
+      rmSync(dir, { recursive: true, force: true });
+    }
   });
 });

@@ -179,7 +179,17 @@ export interface RunOutcome {
   exitCode: number;
 }
 
-export function createProgram(io: CliIo, outcome: RunOutcome = { exitCode: EXIT.ok }): Command {
+/** Every command, in the order --help lists them. */
+export const COMMAND_NAMES = ['solve', 'correct', 'profile', 'harmonics', 'rebalance', 'diagram', 'report', 'check', 'schema'] as const;
+export type CommandName = (typeof COMMAND_NAMES)[number];
+
+/**
+ * The program with every command, or with only `only`: a run that names its command needs no other
+ * (building all nine and their options was ~2 M instructions of every run's start-up). Help and
+ * errors that list commands come from a program with all of them (runCli).
+ */
+export function createProgram(io: CliIo, outcome: RunOutcome = { exitCode: EXIT.ok }, only?: CommandName): Command {
+  const wanted = (name: CommandName): boolean => only === undefined || only === name;
   const program = new Command('trivar');
   program
     .description('Exact phase, neutral and unbalance figures for low-voltage boards with uneven single-phase loads.')
@@ -188,159 +198,177 @@ export function createProgram(io: CliIo, outcome: RunOutcome = { exitCode: EXIT.
     .exitOverride()
     .showHelpAfterError('(run with --help for usage)');
 
-  program
-    .command('solve')
-    .description('solve a board or installation file: voltages, line and neutral currents, unbalance, power factor, losses')
-    .argument('<board>', 'board or installation file (YAML or JSON), or - for standard input')
-    .option('--json', 'print the full result as JSON instead of the report')
-    .option('--open-neutral', 'also show what each line-to-neutral load would see if the neutral conductor broke')
-    .option('--board <name>', 'installation files: also print the full figures of this board (repeatable)', (v: string, prev: string[] = []) => [...prev, v])
-    .option('--all-boards', 'installation files: print the full figures of every board')
-    .addOption(maxInputOption())
-    .addHelpText('after', SOLVE_EXAMPLES)
-    .action(async (board: string, opts: { json?: boolean; openNeutral?: boolean; board?: string[]; allBoards?: boolean; maxInputMb?: number }) => {
-      const { runSolve } = await import('./commands/solve.js');
-      await runSolve(board, opts, io);
-    });
+  if (wanted('solve')) {
+    program
+      .command('solve')
+      .description('solve a board or installation file: voltages, line and neutral currents, unbalance, power factor, losses')
+      .argument('<board>', 'board or installation file (YAML or JSON), or - for standard input')
+      .option('--json', 'print the full result as JSON instead of the report')
+      .option('--open-neutral', 'also show what each line-to-neutral load would see if the neutral conductor broke')
+      .option('--board <name>', 'installation files: also print the full figures of this board (repeatable)', (v: string, prev: string[] = []) => [...prev, v])
+      .option('--all-boards', 'installation files: print the full figures of every board')
+      .addOption(maxInputOption())
+      .addHelpText('after', SOLVE_EXAMPLES)
+      .action(async (board: string, opts: { json?: boolean; openNeutral?: boolean; board?: string[]; allBoards?: boolean; maxInputMb?: number }) => {
+        const { runSolve } = await import('./commands/solve.js');
+        await runSolve(board, opts, io);
+      });
+  }
 
-  program
-    .command('correct')
-    .description('size a capacitor bank or balancing compensator for a power-factor target, choose units, and verify by re-solving')
-    .argument('<board>', 'board or installation file (YAML or JSON), or - for standard input')
-    .option('--board <name>', 'installation files: the board the equipment goes on (default: the main board)')
-    .option('--measured-at <point>', "where the target is measured: origin (the supply's terminals) or a board the equipment's board is fed through (default: the equipment's board)")
-    .addOption(new Option('--arrangement <kind>', 'what to size (default: compare every arrangement that fits the board)').choices(['star-bank', 'delta-bank', 'balancing-compensator']))
-    .option('--pf <value>', 'target power factor (0 < pf <= 1; default 0.95)', numberIn(0, 1, 'a power factor above 0 and at most 1'))
-    .addOption(
-      new Option('--definition <name>', 'which power factor the target applies to').choices(['per-line', 'effective', 'vector', 'arithmetic', 'positive-sequence']),
-    )
-    .option('--allow-leading', 'let a line end up leading (default: never leading)')
-    .option('--upper-pf <value>', 'do not correct beyond this lagging power factor', numberIn(0, 1, 'a power factor above 0 and at most 1'))
-    .option('--light-load <fraction>', 'check the fixed part at this fraction of every load (0-1)', numberIn(-1e-12, 1, 'a fraction from 0 to 1'))
-    .addOption(new Option('--practice <region>', 'regional practice: typical catalogue, voltage margin, discharge time').choices(['iec', 'north-american']))
-    .addOption(new Option('--outputs <n>', 'switched outputs of the bank controller').choices(['6', '8', '12']))
-    .option('--ct <amps>', 'primary of the controller current transformer, A', numberIn(0, 1e6, 'a current above 0 A'))
-    .option('--json', 'print the full report as JSON instead of the text report')
-    .addOption(maxInputOption())
-    .addHelpText('after', CORRECT_EXAMPLES)
-    .action(async (board: string, opts: CorrectCommandOptions) => {
-      const { outcomeMeetsTarget, runCorrect } = await import('./commands/correct.js');
-      if (!outcomeMeetsTarget(await runCorrect(board, opts, io))) outcome.exitCode = EXIT.targetNotMet;
-    });
+  if (wanted('correct')) {
+    program
+      .command('correct')
+      .description('size a capacitor bank or balancing compensator for a power-factor target, choose units, and verify by re-solving')
+      .argument('<board>', 'board or installation file (YAML or JSON), or - for standard input')
+      .option('--board <name>', 'installation files: the board the equipment goes on (default: the main board)')
+      .option('--measured-at <point>', "where the target is measured: origin (the supply's terminals) or a board the equipment's board is fed through (default: the equipment's board)")
+      .addOption(new Option('--arrangement <kind>', 'what to size (default: compare every arrangement that fits the board)').choices(['star-bank', 'delta-bank', 'balancing-compensator']))
+      .option('--pf <value>', 'target power factor (0 < pf <= 1; default 0.95)', numberIn(0, 1, 'a power factor above 0 and at most 1'))
+      .addOption(
+        new Option('--definition <name>', 'which power factor the target applies to').choices(['per-line', 'effective', 'vector', 'arithmetic', 'positive-sequence']),
+      )
+      .option('--allow-leading', 'let a line end up leading (default: never leading)')
+      .option('--upper-pf <value>', 'do not correct beyond this lagging power factor', numberIn(0, 1, 'a power factor above 0 and at most 1'))
+      .option('--light-load <fraction>', 'check the fixed part at this fraction of every load (0-1)', numberIn(-1e-12, 1, 'a fraction from 0 to 1'))
+      .addOption(new Option('--practice <region>', 'regional practice: typical catalogue, voltage margin, discharge time').choices(['iec', 'north-american']))
+      .addOption(new Option('--outputs <n>', 'switched outputs of the bank controller').choices(['6', '8', '12']))
+      .option('--ct <amps>', 'primary of the controller current transformer, A', numberIn(0, 1e6, 'a current above 0 A'))
+      .option('--json', 'print the full report as JSON instead of the text report')
+      .addOption(maxInputOption())
+      .addHelpText('after', CORRECT_EXAMPLES)
+      .action(async (board: string, opts: CorrectCommandOptions) => {
+        const { outcomeMeetsTarget, runCorrect } = await import('./commands/correct.js');
+        if (!outcomeMeetsTarget(await runCorrect(board, opts, io))) outcome.exitCode = EXIT.targetNotMet;
+      });
+  }
 
-  program
-    .command('profile')
-    .description('run interval data through the board or installation: peaks and percentiles, hours over limits, energy and billing power factor by month, an automatic bank simulated over the year')
-    .argument('<board>', 'board or installation file (YAML or JSON), or - for standard input')
-    .option('--data <file>', 'interval data (CSV)')
-    .option('--time-zone <name>', 'IANA time zone of times written without an offset, and of calendar months (default UTC)')
-    .addOption(new Option('--fill-gaps <how>', 'fill missing intervals (default: leave them out)').choices(['none', 'hold', 'linear']))
-    .option('--unlisted-at-rating', 'keep loads that no column drives at their rating (default: off)')
-    .option('--bank', 'simulate an automatic capacitor bank over the profile (profile.bank in the board file sets it up)')
-    .option('--correction-bank', "simulate instead the bank trivar correct designs for this board: its steps, fixed part and controller settings (the board file's correction section)")
-    .option('--pf <value>', 'target power factor of the bank (0 < pf <= 1; default 0.95)', numberIn(0, 1, 'a power factor above 0 and at most 1'))
-    .option('--board <name>', "installation files: the board the bank goes on (default: the main board, or the correction section's board with --correction-bank)")
-    .option('--summary-csv <file>', 'write the summary as CSV')
-    .option('--intervals-csv <file>', 'write per-interval results as CSV')
-    .option('--charts <dir>', 'write SVG charts (currents, power factor, load duration) into this folder; installation files: a folder per board and the feeders\' loading')
-    .option('--threads <n>', 'worker threads for reading large files (1 or 2; default 2 where there are two cores)', numberIn(0, 2, '1 or 2'))
-    .option('--json', 'print the full result as JSON instead of the report')
-    .addHelpText('after', PROFILE_EXAMPLES)
-    .action(async (board: string, opts: ProfileCommandOptions) => {
-      const { runProfile } = await import('./commands/profile.js');
-      await runProfile(board, opts, io);
-    });
+  if (wanted('profile')) {
+    program
+      .command('profile')
+      .description('run interval data through the board or installation: peaks and percentiles, hours over limits, energy and billing power factor by month, an automatic bank simulated over the year')
+      .argument('<board>', 'board or installation file (YAML or JSON), or - for standard input')
+      .option('--data <file>', 'interval data (CSV)')
+      .option('--time-zone <name>', 'IANA time zone of times written without an offset, and of calendar months (default UTC)')
+      .addOption(new Option('--fill-gaps <how>', 'fill missing intervals (default: leave them out)').choices(['none', 'hold', 'linear']))
+      .option('--unlisted-at-rating', 'keep loads that no column drives at their rating (default: off)')
+      .option('--bank', 'simulate an automatic capacitor bank over the profile (profile.bank in the board file sets it up)')
+      .option('--correction-bank', "simulate instead the bank trivar correct designs for this board: its steps, fixed part and controller settings (the board file's correction section)")
+      .option('--pf <value>', 'target power factor of the bank (0 < pf <= 1; default 0.95)', numberIn(0, 1, 'a power factor above 0 and at most 1'))
+      .option('--board <name>', "installation files: the board the bank goes on (default: the main board, or the correction section's board with --correction-bank)")
+      .option('--summary-csv <file>', 'write the summary as CSV')
+      .option('--intervals-csv <file>', 'write per-interval results as CSV')
+      .option('--charts <dir>', 'write SVG charts (currents, power factor, load duration) into this folder; installation files: a folder per board and the feeders\' loading')
+      .option('--threads <n>', 'worker threads for reading large files (1 or 2; default 2 where there are two cores)', numberIn(0, 2, '1 or 2'))
+      .option('--json', 'print the full result as JSON instead of the report')
+      .addHelpText('after', PROFILE_EXAMPLES)
+      .action(async (board: string, opts: ProfileCommandOptions) => {
+        const { runProfile } = await import('./commands/profile.js');
+        await runProfile(board, opts, io);
+      });
+  }
 
-  program
-    .command('harmonics')
-    .description('harmonic study: line and neutral rms with harmonics, THD, resonance scan of every bank state, capacitor duty')
-    .argument('<board>', 'board or installation file (YAML or JSON), or - for standard input')
-    .option('--json', 'print the full report (with the scan data) as JSON instead of the text report')
-    .option('--board <name>', 'installation files: also print the full figures of this board (repeatable)', (v: string, prev: string[] = []) => [...prev, v])
-    .option('--all-boards', 'installation files: print the full figures of every board')
-    .addHelpText('after', HARMONICS_EXAMPLES)
-    .action(async (board: string, opts: { json?: boolean; board?: string[]; allBoards?: boolean }) => {
-      const { runHarmonics } = await import('./commands/harmonics.js');
-      await runHarmonics(board, opts, io);
-    });
+  if (wanted('harmonics')) {
+    program
+      .command('harmonics')
+      .description('harmonic study: line and neutral rms with harmonics, THD, resonance scan of every bank state, capacitor duty')
+      .argument('<board>', 'board or installation file (YAML or JSON), or - for standard input')
+      .option('--json', 'print the full report (with the scan data) as JSON instead of the text report')
+      .option('--board <name>', 'installation files: also print the full figures of this board (repeatable)', (v: string, prev: string[] = []) => [...prev, v])
+      .option('--all-boards', 'installation files: print the full figures of every board')
+      .addHelpText('after', HARMONICS_EXAMPLES)
+      .action(async (board: string, opts: { json?: boolean; board?: string[]; allBoards?: boolean }) => {
+        const { runHarmonics } = await import('./commands/harmonics.js');
+        await runHarmonics(board, opts, io);
+      });
+  }
 
-  program
-    .command('rebalance')
-    .description('find which circuits to move to which phase (fewest moves, proven bound) and re-solve the board or installation')
-    .argument('<board>', 'board or installation file (YAML or JSON), or - for standard input')
-    .option('--aim <figures>', 'what to make small: largest-line, neutral, current-unbalance, voltage-unbalance, each =weight (default largest-line,neutral)', parseAim)
-    .addOption(new Option('--combine <how>', 'over several load conditions: the worst one or the weighted mean').choices(['worst', 'weighted']))
-    .option('--move-limit <n>', 'move at most this many circuits', anyNumber)
-    .option('--near-best <percent>', 'fewest moves whose score is within this % of the best', anyNumber)
-    .option('--capacity <A>', 'largest current any line may carry, A', anyNumber)
-    .option('--boards <names>', 'installations: only the circuits of these boards may move (comma-separated)', (v: string) => v.split(',').map((x) => x.trim()).filter(Boolean))
-    .option('--measure-at <where>', 'installations: score each board\'s incomer ("each", default), the main incomer ("main") or one board\'s incomer and voltage (its name)')
-    .option('--scenarios', 'use the profile section\'s scenarios as the load conditions, weighted by their hours')
-    .option('--data <csv>', 'interval data (as for trivar profile): its peak intervals and a spread of typical ones become the load conditions')
-    .option('--spread <n>', 'with --data: typical intervals picked besides the peaks (default 8)', anyNumber)
-    .option('--time-zone <zone>', 'with --data: IANA zone of timestamps written without an offset (default UTC)')
-    .addOption(new Option('--method <how>', 'search: exact branch-and-bound, local search, or auto by board size').choices(['auto', 'exact', 'local-search']))
-    .option('--no-table', 'skip the table of the best score by moves allowed')
-    .option('--write <file>', 'save the board file with the moves made (never the input file)')
-    .option('--json', 'print the full report as JSON instead of the text report')
-    .addHelpText('after', REBALANCE_EXAMPLES)
-    .action(async (board: string, opts: RebalanceCommandOptions) => {
-      const { runRebalance } = await import('./commands/rebalance.js');
-      await runRebalance(board, opts, io);
-    });
+  if (wanted('rebalance')) {
+    program
+      .command('rebalance')
+      .description('find which circuits to move to which phase (fewest moves, proven bound) and re-solve the board or installation')
+      .argument('<board>', 'board or installation file (YAML or JSON), or - for standard input')
+      .option('--aim <figures>', 'what to make small: largest-line, neutral, current-unbalance, voltage-unbalance, each =weight (default largest-line,neutral)', parseAim)
+      .addOption(new Option('--combine <how>', 'over several load conditions: the worst one or the weighted mean').choices(['worst', 'weighted']))
+      .option('--move-limit <n>', 'move at most this many circuits', anyNumber)
+      .option('--near-best <percent>', 'fewest moves whose score is within this % of the best', anyNumber)
+      .option('--capacity <A>', 'largest current any line may carry, A', anyNumber)
+      .option('--boards <names>', 'installations: only the circuits of these boards may move (comma-separated)', (v: string) => v.split(',').map((x) => x.trim()).filter(Boolean))
+      .option('--measure-at <where>', 'installations: score each board\'s incomer ("each", default), the main incomer ("main") or one board\'s incomer and voltage (its name)')
+      .option('--scenarios', 'use the profile section\'s scenarios as the load conditions, weighted by their hours')
+      .option('--data <csv>', 'interval data (as for trivar profile): its peak intervals and a spread of typical ones become the load conditions')
+      .option('--spread <n>', 'with --data: typical intervals picked besides the peaks (default 8)', anyNumber)
+      .option('--time-zone <zone>', 'with --data: IANA zone of timestamps written without an offset (default UTC)')
+      .addOption(new Option('--method <how>', 'search: exact branch-and-bound, local search, or auto by board size').choices(['auto', 'exact', 'local-search']))
+      .option('--no-table', 'skip the table of the best score by moves allowed')
+      .option('--write <file>', 'save the board file with the moves made (never the input file)')
+      .option('--json', 'print the full report as JSON instead of the text report')
+      .addHelpText('after', REBALANCE_EXAMPLES)
+      .action(async (board: string, opts: RebalanceCommandOptions) => {
+        const { runRebalance } = await import('./commands/rebalance.js');
+        await runRebalance(board, opts, io);
+      });
+  }
 
-  program
-    .command('diagram')
-    .description('draw the board as SVG: phasors (voltages, line and neutral currents), sequence components, or per-line current triangles; an installation also as its one-line drawing')
-    .argument('<board>', 'board or installation file (YAML or JSON), or - for standard input')
-    .addOption(new Option('--view <name>', 'what to draw (one-line: installation files)').choices([...DIAGRAM_VIEWS]).default('phasors'))
-    .option('--with-correction', "overlay the board before and after the board file's correction study")
-    .option('--board <name>', 'installation files: the board to draw (default: the main board)')
-    .option('-o, --output <file>', 'write the SVG to this file (default: standard output)')
-    .addHelpText('after', DIAGRAM_EXAMPLES)
-    .action(async (board: string, opts: DiagramCommandOptions) => {
-      const { runDiagram } = await import('./commands/diagram.js');
-      await runDiagram(board, opts, io);
-    });
+  if (wanted('diagram')) {
+    program
+      .command('diagram')
+      .description('draw the board as SVG: phasors (voltages, line and neutral currents), sequence components, or per-line current triangles; an installation also as its one-line drawing')
+      .argument('<board>', 'board or installation file (YAML or JSON), or - for standard input')
+      .addOption(new Option('--view <name>', 'what to draw (one-line: installation files)').choices([...DIAGRAM_VIEWS]).default('phasors'))
+      .option('--with-correction', "overlay the board before and after the board file's correction study")
+      .option('--board <name>', 'installation files: the board to draw (default: the main board)')
+      .option('-o, --output <file>', 'write the SVG to this file (default: standard output)')
+      .addHelpText('after', DIAGRAM_EXAMPLES)
+      .action(async (board: string, opts: DiagramCommandOptions) => {
+        const { runDiagram } = await import('./commands/diagram.js');
+        await runDiagram(board, opts, io);
+      });
+  }
 
-  program
-    .command('report')
-    .description('write a self-contained report of the board or installation (HTML, or Markdown with SVG figures beside it)')
-    .argument('<board>', 'board or installation file (YAML or JSON), or - for standard input')
-    .option('-o, --output <file>', 'report file to write (HTML may go to standard output)')
-    .addOption(new Option('--format <kind>', 'report format').choices(['html', 'md']).default('html'))
-    .option('--no-correction', "leave out the board file's correction study")
-    .option('--no-harmonics', "leave out the harmonic study (run when the board file has a harmonics: section or load spectra)")
-    .option('--profile-data <file.csv>', 'add a load-over-time section from interval data (columns as for trivar profile --data)')
-    .option('--time-zone <zone>', 'IANA time zone of the interval data (default UTC)')
-    .option('--hand-figures <file>', 'board files: add a check of your hand calculation (the figures file trivar check reads)')
-    .addHelpText('after', REPORT_EXAMPLES)
-    .action(async (board: string, opts: ReportCommandOptions) => {
-      const { runReport } = await import('./commands/report.js');
-      await runReport(board, opts, io, `Made with trivar ${VERSION}. Figures come from the model entered; check them against measurements and local codes.`);
-    });
+  if (wanted('report')) {
+    program
+      .command('report')
+      .description('write a self-contained report of the board or installation (HTML, or Markdown with SVG figures beside it)')
+      .argument('<board>', 'board or installation file (YAML or JSON), or - for standard input')
+      .option('-o, --output <file>', 'report file to write (HTML may go to standard output)')
+      .addOption(new Option('--format <kind>', 'report format').choices(['html', 'md']).default('html'))
+      .option('--no-correction', "leave out the board file's correction study")
+      .option('--no-harmonics', "leave out the harmonic study (run when the board file has a harmonics: section or load spectra)")
+      .option('--profile-data <file.csv>', 'add a load-over-time section from interval data (columns as for trivar profile --data)')
+      .option('--time-zone <zone>', 'IANA time zone of the interval data (default UTC)')
+      .option('--hand-figures <file>', 'board files: add a check of your hand calculation (the figures file trivar check reads)')
+      .addHelpText('after', REPORT_EXAMPLES)
+      .action(async (board: string, opts: ReportCommandOptions) => {
+        const { runReport } = await import('./commands/report.js');
+        await runReport(board, opts, io, `Made with trivar ${VERSION}. Figures come from the model entered; check them against measurements and local codes.`);
+      });
+  }
 
-  program
-    .command('check')
-    .description('check a hand calculation: solve the board with the capacitors you chose and explain each difference from the textbook figures')
-    .argument('<board>', 'board file (YAML or JSON), or - for standard input')
-    .argument('<figures>', 'your hand figures (YAML or JSON): capacitors per phase or line pair, expected PF and currents')
-    .option('--json', 'print the full result as JSON instead of the report')
-    .option('--diagram <file>', 'also write the current triangle of every line, without and with your capacitors, as SVG')
-    .addHelpText('after', CHECK_EXAMPLES)
-    .action(async (board: string, figures: string, opts: CheckCommandOptions) => {
-      const { runCheck } = await import('./commands/check.js');
-      await runCheck(board, figures, opts, io);
-    });
+  if (wanted('check')) {
+    program
+      .command('check')
+      .description('check a hand calculation: solve the board with the capacitors you chose and explain each difference from the textbook figures')
+      .argument('<board>', 'board file (YAML or JSON), or - for standard input')
+      .argument('<figures>', 'your hand figures (YAML or JSON): capacitors per phase or line pair, expected PF and currents')
+      .option('--json', 'print the full result as JSON instead of the report')
+      .option('--diagram <file>', 'also write the current triangle of every line, without and with your capacitors, as SVG')
+      .addHelpText('after', CHECK_EXAMPLES)
+      .action(async (board: string, figures: string, opts: CheckCommandOptions) => {
+        const { runCheck } = await import('./commands/check.js');
+        await runCheck(board, figures, opts, io);
+      });
+  }
 
-  program
-    .command('schema')
-    .description('print the JSON Schema of board files (for editor completion and checking)')
-    .option('--installation', 'the schema of installation files (boards: fed from each other) instead')
-    .action(async (opts: SchemaCommandOptions) => {
-      const { runSchema } = await import('./commands/schema.js');
-      runSchema(io, opts);
-    });
+  if (wanted('schema')) {
+    program
+      .command('schema')
+      .description('print the JSON Schema of board files (for editor completion and checking)')
+      .option('--installation', 'the schema of installation files (boards: fed from each other) instead')
+      .action(async (opts: SchemaCommandOptions) => {
+        const { runSchema } = await import('./commands/schema.js');
+        runSchema(io, opts);
+      });
+  }
 
   return program;
 }
@@ -348,7 +376,8 @@ export function createProgram(io: CliIo, outcome: RunOutcome = { exitCode: EXIT.
 /** Runs the CLI on `argv` (user arguments only) and returns the exit code. */
 export async function runCli(argv: readonly string[], io: CliIo): Promise<number> {
   const outcome: RunOutcome = { exitCode: EXIT.ok };
-  const program = createProgram(io, outcome);
+  const named = COMMAND_NAMES.find((name) => name === argv[0]);
+  const program = createProgram(io, outcome, named);
   try {
     await program.parseAsync(argv as string[], { from: 'user' });
     return outcome.exitCode;

@@ -6,10 +6,10 @@
  * %LOCALAPPDATA%\trivar on Windows), TRIVAR_CODE_CACHE_DIR to put it elsewhere, TRIVAR_NO_CODE_CACHE=1
  * to do without. Only node builtins here: this runs before the bundle.
  */
-import { createHash } from 'node:crypto';
 import { lstatSync, mkdirSync, readdirSync, readFileSync, renameSync, rmSync, writeFileSync } from 'node:fs';
 import { homedir } from 'node:os';
 import { join } from 'node:path';
+import * as zlib from 'node:zlib';
 
 type Env = Readonly<Record<string, string | undefined>>;
 
@@ -28,14 +28,28 @@ export function cacheDirectory(env: Env = process.env, platform: NodeJS.Platform
 }
 
 /**
+ * CRC-32 (zlib.crc32, Node 20.15 on), else the first 4 bytes of a SHA-1. Why not always a hash from
+ * node:crypto: loading node:crypto was 38 M instructions of every run, node:zlib and its CRC of a cache
+ * file 6 M. A CRC is what damage detection needs; the file name gets two of them (below).
+ */
+function checksum(data: Uint8Array | string): number {
+  if (typeof zlib.crc32 === 'function') return zlib.crc32(data);
+  // Node before 20.15 only: loaded when needed.
+  return (require('node:crypto') as typeof import('node:crypto')).createHash('sha1').update(data).digest().readUInt32BE(0);
+}
+const hex8 = (n: number): string => n.toString(16).padStart(8, '0');
+
+/**
  * The cache file of one command: named for the bundle (the build's hash of its text, and its size and
  * modification time, so a rebuilt or edited bundle never reads a cache made for another) and for the
  * Node build (V8 itself checks only its version, its flags and the source's length). One cache per
- * command: each holds the functions that command ran.
+ * command: each holds the functions that command ran. The name's 64 bits are the checksums of the
+ * name's input read forwards and backwards: two inputs of one length whose CRCs agree (CRC is linear)
+ * almost never agree backwards too, so builds are told apart as well as by a 64-bit hash.
  */
 export function cacheFileName(bundle: string, command: string): string {
-  const hash = createHash('sha256').update(`${bundle}\0${process.version}\0${process.arch}\0${command}`).digest('hex').slice(0, 24);
-  return `${command}-${hash}.v8`;
+  const input = `${bundle}\0${process.version}\0${process.arch}\0${command}`;
+  return `${command}-${hex8(checksum(input))}${hex8(checksum([...input].reverse().join('')))}.v8`;
 }
 
 /** The command a run's cache is kept under: the first argument when it looks like a command name. */
@@ -56,12 +70,17 @@ function ownFolder(dir: string): boolean {
 }
 
 /**
- * A cache file is the SHA-1 of the code cache, then the code cache. V8 checks a code cache's header but,
- * in release builds, not its body: a damaged body crashed Node or could run wrong code. The digest
- * catches damage (a disk error, a half-copied folder); the folder's ownership is what keeps others out.
+ * A cache file is the checksum of the code cache (4 bytes, big-endian), then the code cache. V8 checks a
+ * code cache's header but, in release builds, not its body: a damaged body crashed Node or could run
+ * wrong code. The checksum catches damage (a disk error, a half-copied folder); the folder's ownership
+ * is what keeps others out.
  */
-const DIGEST = 20;
-const digestOf = (data: Uint8Array): Buffer => createHash('sha1').update(data).digest();
+const DIGEST = 4;
+function digestOf(data: Uint8Array): Buffer {
+  const digest = Buffer.alloc(DIGEST);
+  digest.writeUInt32BE(checksum(data), 0);
+  return digest;
+}
 
 /** The cached code, or undefined when there is none, it is damaged, or the folder is not safe to read it from. */
 export function readCache(dir: string, file: string): Buffer | undefined {

@@ -22,6 +22,13 @@ declare const TRIVAR_BUNDLE_HASH: string;
 /** What the bundle is called with: CommonJS's module parameters and its own URL (the parameters build.mjs's wrapper declares). */
 type BundleFunction = (exports: object, require: NodeJS.Require, module: { exports: object }, filename: string, dirname: string, bundleUrl: string) => void;
 
+// No V8 flags are set here. Tried 2026-12-03: v8.setFlagsFromString('--no-turbo-inlining') before the
+// bundle is compiled (the code cache is still accepted on the next run). Wall time, 25 interleaved runs
+// each, medians, own cache folder per variant, on 2 cores at a 1-min load average of 5.2-9.0 (so noisy):
+// correct corner-bakery 1290 -> 1012 ms, hillside 1402 -> 1190, riverside 976 -> 938, but harbour-cottages
+// 563 -> 727, solve of a 1,000-load board 911 -> 978, profile osier-mill day 996 -> 1143, and profile of a
+// year of 1-minute data (quay-street-flats) 24.8/25.7/21.6 -> 44.6/36.7/27.9 s: long runs lose the inlined
+// optimised code. Not a clear net win, so not kept.
 // Built as CommonJS (build.mjs): __dirname is dist/.
 const bundlePath = join(__dirname, 'trivar-bundle.js');
 const bytes = readFileSync(bundlePath);
