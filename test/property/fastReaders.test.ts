@@ -1,12 +1,12 @@
 /**
  * The shortcuts the correction's sizing loops take give exactly what the general path gives:
- * line powers and sequence currents read without the whole analysis, and trial banks solved on a network compiled
+ * line powers, sequence currents and the target figures (the verification's tolerance ends) read without the whole analysis, and trial banks solved on a network compiled
  * once per loop (new branch values only) against a fresh `solveNetwork` of the same board.
  */
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { addCorrectionEquipment, analyseSolution, normaliseBoard, solveNetwork, type BoardSpec } from '@trivar/core';
-import { readLinePowers, readSequenceCurrents } from '../../packages/core/src/analysis/analyseSolution.js';
+import { readLinePowers, readSequenceCurrents, readTargetFigures } from '../../packages/core/src/analysis/analyseSolution.js';
 import { createProbe } from '../../packages/core/src/correction/_internal/boardProbe.js';
 import { deltaSlots, starSlots } from '../../packages/core/src/correction/equipment.js';
 import { boardSpecArb } from './arbitraries/boardSpec.js';
@@ -39,6 +39,21 @@ describe('fast readers of the sizing loops', () => {
         const current = result.sequences.current;
         expect([read!.current.zero, read!.current.positive, read!.current.negative].map(plain)).toEqual([current.zero, current.positive, current.negative].map(plain));
         expect(read!.positiveSequence).toEqual({ kW: result.powerFactor.positiveSequence!.kW, kvar: result.powerFactor.positiveSequence!.kvar });
+      }),
+      { numRuns: 60 },
+    );
+  });
+
+  it('readTargetFigures equals the analysis’ phases, power factors and conventions, to the last bit', () => {
+    fc.assert(
+      fc.property(boardSpecArb(), (spec) => {
+        const solution = solveNetwork(normaliseBoard(spec));
+        const result = analyseSolution(solution);
+        const read = readTargetFigures(solution);
+        expect(Object.keys(read).sort()).toEqual(['conventions', 'phases', 'powerFactor']);
+        expect(read.phases).toEqual(result.phases);
+        expect(read.powerFactor).toEqual(result.powerFactor);
+        expect(read.conventions).toEqual(result.conventions);
       }),
       { numRuns: 60 },
     );

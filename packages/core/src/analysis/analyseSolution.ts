@@ -175,6 +175,45 @@ export function sequenceCurrentsAbove(solved: SolvedLines, floor: number): Seque
   return { current: is, positiveSequence: { kW: p1 / 1000, kvar: q1 / 1000 } };
 }
 
+/** What a target check reads of a solved board (`checkTarget` in correction/correctionTarget.ts). */
+export type TargetReadings = Pick<BoardResult, 'conventions' | 'phases' | 'powerFactor'>;
+
+/**
+ * The per-line readings and board power factors `analyseSolution` reports (noise floor included,
+ * the same operations, so the same numbers) without the rest of the analysis: the correction's
+ * verification reads only these at the capacitance tolerance ends.
+ */
+export function readTargetFigures(solved: NetworkSolution): TargetReadings {
+  const floor = currentNoiseFloor(solved);
+  const clean = (i: ComplexValue): ComplexValue => (abs(i) < floor ? ZERO : i);
+  const solution = { ...solved, lineCurrents: solved.lineCurrents.map(clean), neutralCurrent: solved.neutralCurrent === null ? null : clean(solved.neutralCurrent) };
+  const voltages = boardVoltages(solution);
+  const phases = readPhases(solution, voltages.phase);
+  const lineToLine = readLineToLine(solution, voltages.bus);
+  const triple = (xs: readonly ComplexValue[]) => xs as unknown as [ComplexValue, ComplexValue, ComplexValue];
+  const sequence = isThreePhase(solution.board.system)
+    ? { V1: sequenceComponents(triple(voltages.phase), solution.board.sequence).positive, I1: sequenceComponents(triple(solution.lineCurrents), solution.board.sequence).positive }
+    : null;
+  return { conventions: conventionsOf(solution.board), phases, powerFactor: readPowerFactors(solution, phases, lineToLine, sequence) };
+}
+
+function readPowerFactors(
+  solution: Pick<NetworkSolution, 'board' | 'neutralCurrent'>,
+  phases: readonly PhaseReading[],
+  lineToLine: readonly LineToLineReading[],
+  sequence: { V1: ComplexValue; I1: ComplexValue } | null,
+) {
+  return boardPowerDefinitions({
+    phasePowers: phases.map((p) => ({ re: p.kW * 1000, im: p.kvar * 1000 })),
+    phaseVoltages: phases.map((p) => p.voltage.magnitude),
+    phaseCurrents: phases.map((p) => p.current.magnitude),
+    lineToLine: lineToLine.map((l) => l.voltage.magnitude),
+    neutralCurrent: solution.neutralCurrent ? abs(solution.neutralCurrent) : null,
+    threePhase: isThreePhase(solution.board.system),
+    sequence,
+  });
+}
+
 export function analyseSolution(solved: NetworkSolution): BoardResult {
   const solution = withNoiseFloor(solved);
   const { board } = solution;
@@ -188,15 +227,7 @@ export function analyseSolution(solved: NetworkSolution): BoardResult {
   // A sub-board's supply is what its feeder takes from the board feeding it.
   const sourcePower = solution.suppliedPower ?? sum(board.emf.map((e, k) => mul(e, conj(solution.lineCurrents[k]!))));
   const seq = threePhase ? readSequences(solution, voltages.phase, phases, lineToLine) : null;
-  const powerFactor = boardPowerDefinitions({
-    phasePowers: phases.map((p) => ({ re: p.kW * 1000, im: p.kvar * 1000 })),
-    phaseVoltages: phases.map((p) => p.voltage.magnitude),
-    phaseCurrents: phases.map((p) => p.current.magnitude),
-    lineToLine: lineToLine.map((l) => l.voltage.magnitude),
-    neutralCurrent: solution.neutralCurrent ? abs(solution.neutralCurrent) : null,
-    threePhase,
-    sequence: seq ? { V1: seq.V1, I1: seq.I1 } : null,
-  });
+  const powerFactor = readPowerFactors(solution, phases, lineToLine, seq ? { V1: seq.V1, I1: seq.I1 } : null);
   const unbalance = seq?.unbalance ?? null;
   const belowThreshold = loadsBelowThreshold(solution);
   const transformer = readTransformer(solution);

@@ -4,7 +4,7 @@
  * For an ACB board the roles of a and a² swap, so that "positive" always means
  * the sequence the supply actually runs in.
  */
-import { A_OPERATOR, A_SQUARED, add, mul, scale, type ComplexValue } from '../complex.js';
+import { A_OPERATOR, A_SQUARED, type ComplexValue } from '../complex.js';
 
 export interface SequenceSet<T = ComplexValue> {
   readonly zero: T;
@@ -12,14 +12,31 @@ export interface SequenceSet<T = ComplexValue> {
   readonly negative: T;
 }
 
-export function sequenceComponents(
-  [xa, xb, xc]: readonly [ComplexValue, ComplexValue, ComplexValue],
-  sequence: 'ABC' | 'ACB' = 'ABC',
-): SequenceSet {
-  const [ab, ac] = sequence === 'ABC' ? [A_OPERATOR, A_SQUARED] : [A_SQUARED, A_OPERATOR];
+const THIRD = 1 / 3;
+
+/**
+ * Written out rather than composed of `add`/`mul`/`scale` (every trial solve of the sizing loops
+ * reads these, and the helpers allocate an object per step): the same operations in the same
+ * order as scale(add(add(xa, mul(a, xb)), mul(a², xc)), 1/3), so the same numbers to the bit.
+ */
+export function sequenceComponents(x: readonly [ComplexValue, ComplexValue, ComplexValue], sequence: 'ABC' | 'ACB' = 'ABC'): SequenceSet {
+  const xa = x[0];
+  const xb = x[1];
+  const xc = x[2];
+  const ab = sequence === 'ABC' ? A_OPERATOR : A_SQUARED;
+  const ac = sequence === 'ABC' ? A_SQUARED : A_OPERATOR;
+  // ab·xb, ac·xc (positive) and ac·xb, ab·xc (negative), as `mul` forms them.
+  const abXbRe = ab.re * xb.re - ab.im * xb.im;
+  const abXbIm = ab.re * xb.im + ab.im * xb.re;
+  const acXcRe = ac.re * xc.re - ac.im * xc.im;
+  const acXcIm = ac.re * xc.im + ac.im * xc.re;
+  const acXbRe = ac.re * xb.re - ac.im * xb.im;
+  const acXbIm = ac.re * xb.im + ac.im * xb.re;
+  const abXcRe = ab.re * xc.re - ab.im * xc.im;
+  const abXcIm = ab.re * xc.im + ab.im * xc.re;
   return {
-    zero: scale(add(add(xa, xb), xc), 1 / 3),
-    positive: scale(add(add(xa, mul(ab, xb)), mul(ac, xc)), 1 / 3),
-    negative: scale(add(add(xa, mul(ac, xb)), mul(ab, xc)), 1 / 3),
+    zero: { re: (xa.re + xb.re + xc.re) * THIRD, im: (xa.im + xb.im + xc.im) * THIRD },
+    positive: { re: (xa.re + abXbRe + acXcRe) * THIRD, im: (xa.im + abXbIm + acXcIm) * THIRD },
+    negative: { re: (xa.re + acXbRe + abXcRe) * THIRD, im: (xa.im + acXbIm + abXcIm) * THIRD },
   };
 }

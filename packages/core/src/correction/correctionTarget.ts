@@ -15,6 +15,7 @@
  */
 import type { Board, PhaseId } from '../board/boardModel.js';
 import type { BoardResult, PowerFactorSense } from '../analysis/boardResult.js';
+import type { TargetReadings } from '../analysis/analyseSolution.js';
 import type { Arrangement, TargetDefinition, TargetSpec } from './correctionSpec.js';
 import { CORRECTION_DEFAULTS } from './correctionDefaults.js';
 import { meteredStatement, TARGET_STATEMENTS, targetShortfall } from './correctionWording.js';
@@ -84,7 +85,7 @@ export function lineTanBounds(target: ResolvedTarget, lineIndex: number): { high
 }
 
 /** The board-wide PF by a named definition (signed like P), or null where that definition does not exist. */
-export function boardPowerFactor(result: BoardResult, definition: BoardTargetDefinition): number | null {
+export function boardPowerFactor(result: Pick<BoardResult, 'powerFactor'>, definition: BoardTargetDefinition): number | null {
   const pf = result.powerFactor;
   switch (definition) {
     case 'effective':
@@ -140,7 +141,7 @@ const UNLOADED_FRACTION = 1e-6;
  *   lower τ bound there are held to that (not to lead more); omit to judge the
  *   bound as written.
  */
-export function checkTarget(result: BoardResult, target: ResolvedTarget, before?: BoardResult): TargetCheck {
+export function checkTarget(result: TargetReadings, target: ResolvedTarget, before?: Pick<BoardResult, 'phases'>): TargetCheck {
   const largest = Math.max(...result.phases.map((p) => p.kVA), 0);
   // Shortfalls name lines the way the board file does (L1 or A).
   const label = labellerOf(result.conventions.phaseNames);

@@ -18,7 +18,7 @@ import { analyseSolution } from '../analysis/analyseSolution.js';
 import { ZERO } from '../complex.js';
 import { inputIssue, type InputIssue } from '../errors.js';
 import { boardOfInstallation, installationOf } from '../network/installationModel.js';
-import { solveInstallationNetwork, type SolveOptions } from '../network/solveNetwork.js';
+import { solveInstallationNetwork, type NetworkSolution, type SolveOptions } from '../network/solveNetwork.js';
 
 /** The word for the origin of the installation in `target.measuredAt`. */
 export const ORIGIN_POINT = 'origin';
@@ -111,7 +111,10 @@ export function meteringPlace(board: Board, point: string | undefined): Metering
 }
 
 /** Solves the whole installation with `board` as it is and reads the metering point. */
-export function solveMeter(board: Board, place: MeteringPlace, options: SolveOptions = {}): BoardResult {
+export function solveMeter(board: Board, place: MeteringPlace, options?: SolveOptions): BoardResult;
+/** The same, read by `read` (e.g. only the target figures) instead of the whole analysis. */
+export function solveMeter<R>(board: Board, place: MeteringPlace, options: SolveOptions, read: (solved: NetworkSolution) => R): R;
+export function solveMeter(board: Board, place: MeteringPlace, options: SolveOptions = {}, read: (solved: NetworkSolution) => unknown = analyseSolution): unknown {
   const framed = place.inFrame(board);
-  return analyseSolution(solveInstallationNetwork(installationOf(framed).installation, options).boards[place.meterIndex]!);
+  return read(solveInstallationNetwork(installationOf(framed).installation, options).boards[place.meterIndex]!);
 }

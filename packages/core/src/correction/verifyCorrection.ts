@@ -7,8 +7,8 @@
 import * as z from 'zod';
 import type { Board, PhaseId } from '../board/boardModel.js';
 import type { BoardResult } from '../analysis/boardResult.js';
-import { analyseSolution } from '../analysis/analyseSolution.js';
-import { compileBoard, solveCompiledBoard, solveNetwork, type SolveOptions } from '../network/solveNetwork.js';
+import { analyseSolution, readTargetFigures, type TargetReadings } from '../analysis/analyseSolution.js';
+import { compileBoard, solveCompiledBoard, solveNetwork, type NetworkSolution, type SolveOptions } from '../network/solveNetwork.js';
 import { resolveSolveOptions } from '../network/solveOptions.js';
 import { abs, type ComplexValue } from '../complex.js';
 import { supplyPathImpedance } from '../network/installationModel.js';
@@ -106,7 +106,7 @@ function solvedAsIs(board: Board): BoardResult {
  * values into the network: the solve `solveNetwork` does, since a compiled network depends on
  * branch values only through which are zero. A board whose zero pattern differs is solved afresh.
  */
-function equipmentValueSolver(corrected: Board, baseLoads: number, options: SolveOptions): (b: Board) => BoardResult {
+function equipmentValueSolver(corrected: Board, baseLoads: number, options: SolveOptions): <R>(b: Board, read: (s: NetworkSolution) => R) => R {
   const added = (b: Board) => b.loads.slice(baseLoads).flatMap((l) => l.branches);
   const isZero = (p: ComplexValue) => p.re === 0 && p.im === 0;
   const pattern = added(corrected).map((br) => isZero(br.sNominal));
@@ -115,14 +115,14 @@ function equipmentValueSolver(corrected: Board, baseLoads: number, options: Solv
   let first = compiled.installation.layout.branchOffset[compiled.boardIndex]!;
   for (let l = 0; l < baseLoads; l++) first += corrected.loads[l]!.branches.length;
   const net = compiled.network;
-  return (b) => {
+  return (b, read) => {
     const branches = added(b);
-    if (branches.length !== pattern.length || branches.some((br, j) => isZero(br.sNominal) !== pattern[j])) return analyseSolution(solveNetwork(b, options));
+    if (branches.length !== pattern.length || branches.some((br, j) => isZero(br.sNominal) !== pattern[j])) return read(solveNetwork(b, options));
     branches.forEach((br, j) => {
       net.powerRe[first + j] = br.sNominal.re;
       net.powerIm[first + j] = br.sNominal.im;
     });
-    return analyseSolution(solveCompiledBoard({ ...compiled, board: b }, options));
+    return read(solveCompiledBoard({ ...compiled, board: b }, options));
   };
 }
 
@@ -148,15 +148,17 @@ export function verifyCorrection(board: Board, options: VerifyCorrectionOptions)
   // Warnings name lines the way the board file does (L1 or A).
   const label = labellerOf(before.conventions.phaseNames);
   const corrected = addCorrectionEquipment(board, equipment);
-  const solveEquipped = meter ? solve : equipmentValueSolver(corrected, board.loads.length, solveOptions);
-  const after = solveEquipped(corrected);
+  const solveEquipped = meter ? <R>(b: Board, read: (s: NetworkSolution) => R) => read(solveNetwork(b, solveOptions)) : equipmentValueSolver(corrected, board.loads.length, solveOptions);
+  const after = solveEquipped(corrected, analyseSolution);
   const meteredBefore = judged(board, before);
   const meteredAfter = judged(corrected, after);
   const check = checkTarget(meteredAfter, target, meteredBefore);
   const branches = branchSizings(equipment, corrected, after);
   const atTolerance = (capacitanceFactor: number) => {
     const b = addCorrectionEquipment(board, equipment, { capacitanceFactor });
-    return checkTarget(meter ? judged(b) : solveEquipped(b), target, meteredBefore);
+    // Only the target figures are read at the tolerance ends: not the whole analysis.
+    const figures: TargetReadings = meter ? solveMeter(b, meter, solveOptions, readTargetFigures) : solveEquipped(b, readTargetFigures);
+    return checkTarget(figures, target, meteredBefore);
   };
   const low = atTolerance(1 - minus);
   const high = atTolerance(1 + plus);

@@ -16,6 +16,7 @@ import { REFERENCE } from '../../network/networkTopology.js';
 import { abs, type ComplexValue } from '../../complex.js';
 import type { MeteringPlace } from '../meteringPoint.js';
 import { conventionsOf } from '../../board/conventions/boardConventions.js';
+import { RememberedStates } from './rememberedStates.js';
 import { addCorrectionEquipment, cleanSusceptance, equipmentGroups, equipmentPower, susceptanceFromKvar, type BranchSlot, type EquipmentGroup } from '../equipment.js';
 
 export interface ProbeState {
@@ -69,30 +70,21 @@ export function createProbe(board: Board, slots: readonly BranchSlot[], name: st
   const solveTrial = trialSolver(base, slots, groups, solve, meter);
   // A trial's solve depends on its outputs alone (every solve starts from the same state), so a
   // repeated question is answered from the state kept, bit for bit what solving again gives.
-  const remembered: ProbeState[] = [];
-  let next = 0;
+  const remembered = new RememberedStates<ProbeState>(REMEMBERED_STATES);
   return {
     slots,
     base,
     groups,
     solves: () => count,
     at(kvar) {
-      const known = remembered.find((s) => sameOutputs(s.kvar, kvar));
+      const known = remembered.find(kvar);
       if (known) return known;
       count++;
       const state = solveTrial(kvar);
-      remembered[next] = state;
-      next = (next + 1) % REMEMBERED_STATES;
+      remembered.add(state);
       return state;
     },
   };
-}
-
-/** The same outputs to the bit (−0 apart from 0). */
-function sameOutputs(a: readonly number[], b: readonly number[]): boolean {
-  if (a.length !== b.length) return false;
-  for (let i = 0; i < a.length; i++) if (!Object.is(a[i], b[i])) return false;
-  return true;
 }
 
 /** A network compiled for trials: the first added branch is circuit branch `first`. */
