@@ -7,6 +7,8 @@
  * walk is most of the solve. Entries the sparse pattern leaves out are zeros here: a zero
  * multiplier subtracts ±0, so finite results are the same to the bit (the solve's
  * property test checks it), only the sign of an exact zero could differ.
+ * The repetition below is the point: the loops of the sparse code unrolled for n = 4, each
+ * block one pivot, row or substitution step, so that V8 keeps the entries in registers.
  *
  * The pattern is kept, with its slots renumbered positionally (`withPositionalSlots`):
  * entry (row, column) in elimination order at 4·row + column. Every other user of the
