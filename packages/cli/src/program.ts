@@ -185,7 +185,7 @@ export type CommandName = (typeof COMMAND_NAMES)[number];
 
 /**
  * The program with every command, or with only `only`: a run that names its command needs no other
- * (building all nine and their options was ~2 M instructions of every run's start-up). Help and
+ * (building all nine and their options was 4–7 M instructions of every run's start-up, cachegrind). Help and
  * errors that list commands come from a program with all of them (runCli).
  */
 export function createProgram(io: CliIo, outcome: RunOutcome = { exitCode: EXIT.ok }, only?: CommandName): Command {
