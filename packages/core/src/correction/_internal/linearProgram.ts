@@ -14,6 +14,7 @@
  * of vertices equal within TIE the one met first stays.
  */
 import { dot, nextSubset, solveLinearInPlace } from './realMatrix.js';
+import { solveFourRows } from './fourRowVertex.js';
 
 export interface LinearProgram {
   /** Each row: coefficients of one constraint `row·z ≤ bound`. */
@@ -74,20 +75,11 @@ export function solveLinearProgram(lp: LinearProgram): number[] | null {
   // The rows on one typed array, read by the loop below over every choice of d active rows (a
   // sizing loop solves a dozen of these programmes cold, each with a few hundred vertices).
   const flat = Float64Array.from(rows.flat());
-  // Every vertex candidate's system in one typed work area (bit-identical to solveLinear, see solveLinearInPlace).
-  const system = new Float64Array(d * (d + 1));
-  const rowOf = new Int32Array(d);
+  const rhs = Float64Array.from(bounds);
   const solution = new Float64Array(d);
-  const active = new Int32Array(d);
   let lastMissed = 0;
-  for (let i = 0; i < d; i++) active[i] = i;
-  for (let more = true; more; more = nextSubset(active, d, m)) {
-    for (let r = 0; r < d; r++) {
-      const row = active[r]! * d;
-      for (let c = 0; c < d; c++) system[r * (d + 1) + c] = flat[row + c]!;
-      system[r * (d + 1) + d] = bounds[active[r]!]!;
-    }
-    if (!solveLinearInPlace(system, d, rowOf, solution)) continue;
+  /** Keeps the vertex in `solution` if it is feasible and better than the best so far. */
+  const consider = (): void => {
     let zScale = scale;
     for (let c = 0; c < d; c++) zScale = Math.max(zScale, Math.abs(solution[c]!));
     // Every row·z ≤ bound (within tolerance), each dot product summed left to right from 0 as `dot` sums it.
@@ -98,17 +90,39 @@ export function solveLinearProgram(lp: LinearProgram): number[] | null {
       const i = k < 0 ? lastMissed : k;
       if (k === lastMissed) continue;
       let s = 0;
-      for (let c = 0; c < d; c++) s = s + flat[i * d + c]! * solution[c]!;
-      feasible = s <= bounds[i]! + FEASIBILITY * zScale;
+      if (d === 4) s = 0 + flat[4 * i]! * solution[0]! + flat[4 * i + 1]! * solution[1]! + flat[4 * i + 2]! * solution[2]! + flat[4 * i + 3]! * solution[3]!;
+      else for (let c = 0; c < d; c++) s = s + flat[i * d + c]! * solution[c]!;
+      feasible = s <= rhs[i]! + FEASIBILITY * zScale;
       if (!feasible) lastMissed = i;
     }
-    if (!feasible) continue;
+    if (!feasible) return;
     const z = Array.from(solution);
     const values = lp.objectives.map((c) => dot(c, z));
     if (!best || isBetter(values, bestValues)) {
       best = z;
       bestValues = values;
     }
+  };
+  if (d === 4) {
+    // Every line-target sizing: choices of four rows in the order nextSubset gives them, each vertex by
+    // the written-out elimination (same bits as solveLinearInPlace, see fourRowVertex.ts).
+    for (let i = 0; i < m; i++)
+      for (let j = i + 1; j < m; j++)
+        for (let k = j + 1; k < m; k++) for (let l = k + 1; l < m; l++) if (solveFourRows(flat, rhs, i, j, k, l, solution)) consider();
+    return best;
+  }
+  // Every vertex candidate's system in one typed work area (bit-identical to solveLinear, see solveLinearInPlace).
+  const system = new Float64Array(d * (d + 1));
+  const rowOf = new Int32Array(d);
+  const active = new Int32Array(d);
+  for (let i = 0; i < d; i++) active[i] = i;
+  for (let more = true; more; more = nextSubset(active, d, m)) {
+    for (let r = 0; r < d; r++) {
+      const row = active[r]! * d;
+      for (let c = 0; c < d; c++) system[r * (d + 1) + c] = flat[row + c]!;
+      system[r * (d + 1) + d] = rhs[active[r]!]!;
+    }
+    if (solveLinearInPlace(system, d, rowOf, solution)) consider();
   }
   return best;
 }
