@@ -92,27 +92,45 @@ export async function readBoardSource(path: string, options: ReadOptions = {}): 
 }
 
 /**
+ * process.stderr, built on first use and guarded then: errors on stderr itself are ignored, there is
+ * nowhere left to report them. Node builds the stream the first time it is read, and for a pipe that
+ * is a net.Socket and the modules behind it (about 18 M instructions): a run that writes nothing to
+ * stderr never pays for it. Every write to stderr goes through here, so none is unguarded.
+ */
+let stderrGuarded = false;
+export function stderrStream(): NodeJS.WriteStream {
+  const stream = process.stderr;
+  if (!stderrGuarded) {
+    stderrGuarded = true;
+    stream.on('error', () => undefined);
+  }
+  return stream;
+}
+
+/**
  * What happens when stdout cannot take the output. A reader that closed the pipe
  * (`trivar solve board.yaml | head -1`) ends trivar quietly with exit 0, as other
  * Unix filters do; any other write error (a full disk: ENOSPC) is an error with
- * its own exit code. Errors on stderr itself are ignored: there is nowhere left to report them.
+ * its own exit code.
  */
 export function guardOutputStreams(): void {
   process.stdout.on('error', (error: NodeJS.ErrnoException) => {
     if (error.code === 'EPIPE') return process.exit(EXIT.ok);
     try {
-      process.stderr.write(`error: cannot write the output: ${fileErrorWords(error)}\n`);
+      stderrStream().write(`error: cannot write the output: ${fileErrorWords(error)}\n`);
     } finally {
       process.exit(EXIT.output);
     }
   });
-  process.stderr.on('error', () => undefined);
 }
 
 export const processIo: CliIo = {
   stdout: (text) => process.stdout.write(text),
-  stderr: (text) => process.stderr.write(text),
+  stderr: (text) => stderrStream().write(text),
   readSource: readBoardSource,
   isTty: Boolean(process.stdout.isTTY),
-  progressTty: Boolean(process.stderr.isTTY),
+  // Read when a command asks (only the long ones draw progress), not at start-up: see stderrStream.
+  get progressTty() {
+    return Boolean(stderrStream().isTTY);
+  },
 };

@@ -1,6 +1,6 @@
 /** A progress bar on a terminal (stderr), and nothing at all when output is piped or in tests. */
 import cliProgress from 'cli-progress';
-import type { CliIo } from './io.js';
+import { stderrStream, type CliIo } from './io.js';
 
 export interface Progress {
   stage(name: string, total: number, done?: number): void;
@@ -10,7 +10,7 @@ export interface Progress {
 export function startProgress(io: CliIo): Progress {
   if (!io.progressTty) return { stage: () => {}, stop: () => {} };
   const bar = new cliProgress.SingleBar(
-    { format: '  {stage} [{bar}] {percentage}%', stream: process.stderr, clearOnComplete: true, hideCursor: true },
+    { format: '  {stage} [{bar}] {percentage}%', stream: stderrStream(), clearOnComplete: true, hideCursor: true },
     cliProgress.Presets.shades_classic,
   );
   let current = '';
