@@ -24,6 +24,13 @@ export const WARNING_THRESHOLDS = {
   continuousBreakerShare: 0.8,
 } as const;
 
+/**
+ * Relative margin a comparison of two currents allows for round-off. Quantities equal in
+ * exact arithmetic (a single-phase board's line and neutral currents) come out of different
+ * solve paths a few units of 1e-16 apart; a verdict must not turn on that.
+ */
+export const ROUND_OFF_MARGIN = 1e-9;
+
 const fmt = (x: number, digits = 1) => x.toFixed(digits);
 /** Amps to 0.1 A, or to 2 significant figures when that would print a non-zero current as 0.0. */
 const amps = (x: number) => (x === 0 || x >= 0.05 ? x.toFixed(1) : x.toPrecision(2));
@@ -53,7 +60,7 @@ export function boardWarnings(input: {
   const limits = input.limits ?? presetLimits('en50160-supply');
   const smallest = Math.min(...phases.map((p) => p.current.magnitude));
   const largest = Math.max(...phases.map((p) => p.current.magnitude));
-  if (neutral && phases.length > 1 && neutral.current.magnitude > smallest && neutral.current.magnitude > 0.01 * largest)
+  if (neutral && phases.length > 1 && neutral.current.magnitude > smallest * (1 + ROUND_OFF_MARGIN) && neutral.current.magnitude > 0.01 * largest)
     out.push({
       code: 'neutral-above-phase',
       message: `neutral carries ${amps(neutral.current.magnitude)} A, more than the lightest phase (${amps(smallest)} A): it is a current-carrying conductor and must be sized for it`,

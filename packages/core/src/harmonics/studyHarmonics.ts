@@ -24,6 +24,7 @@ import type { CapacitorDuty, DutyCase, DutyCondition, HarmonicLineReading, Harmo
 import { conventionsOf } from '../board/conventions/boardConventions.js';
 import { regionWords } from '../board/conventions/regionWords.js';
 import { labelIn } from '../board/conventions/phaseNames.js';
+import { ROUND_OFF_MARGIN } from '../analysis/boardWarnings.js';
 
 export interface HarmonicsOptions {
   /** Passed to the fundamental solve. @defaultValue solver defaults */
@@ -223,7 +224,7 @@ export function harmonicsWarnings({ scan, neutral, voltageDistortion, duty, tdd,
   if (scan && scan.shortCircuitKVA === null) warn('ideal-source', harmonicsWarningText.idealSource);
   if (neutral?.overloaded) warn('neutral-overload', harmonicsWarningText.neutralOverload(neutral.current.rms, neutral.ratingA!), neutral.current.rms, neutral.ratingA);
   // Above 1 by more than round-off: on a single-phase board the neutral is the line's return, 1 ± 1e-16.
-  if (neutral?.ratioToPhase !== null && neutral?.ratioToPhase !== undefined && neutral.ratioToPhase > 1 + 1e-9)
+  if (neutral?.ratioToPhase !== null && neutral?.ratioToPhase !== undefined && neutral.ratioToPhase > 1 + ROUND_OFF_MARGIN)
     warn('neutral-above-phase', harmonicsWarningText.neutralAbovePhase(neutral.ratioToPhase, splitPhase), neutral.ratioToPhase, 1);
   if (voltageDistortion) {
     const { individualLimitPercent: individual, thdLimitPercent: thdLimit } = voltageDistortion;

@@ -1,5 +1,5 @@
 /**
- * The first Newton steps of compiledNetwork.ts's `solveByMagnitudes` for the commonest
+ * The Newton steps of compiledNetwork.ts's `solveByMagnitudes` for the commonest
  * board, written out in one pass: three node pairs carry the voltage-dependent loads and
  * they are the network's only load ports (a load from each phase to neutral). Each step
  * takes the ports' admittances and their slopes at the assumed magnitudes, solves the
@@ -80,12 +80,12 @@ export class ThreePairPortSteps {
   }
 
   /**
-   * Up to `most` (at most two) Newton steps through the ports from the magnitudes in
-   * `magnitude`, after the reduction's `openCircuit`. Leaves the unknowns' voltages of the
-   * last port solve in `xRe/xIm` (elimination order) and returns: STEPS_SETTLED (the
-   * magnitudes in `magnitude` are the state, after `solves` solves: the caller solves the
-   * nodal matrix there); STEPS_CONTINUE (the stepped magnitudes, `lastChange` the last
-   * change: the caller goes on with the nodal solves); STEPS_DECLINED (hand the solve to the
+   * Up to `most` Newton steps through the ports from the magnitudes in `magnitude`, after
+   * the reduction's `openCircuit`, stopping as `solveByMagnitudes` does. Leaves the unknowns'
+   * voltages of the last port solve in `xRe/xIm` (elimination order) and returns: STEPS_SETTLED
+   * (the magnitudes in `magnitude` are the state, after `solves` solves, and `xRe/xIm` its
+   * voltages); STEPS_CONTINUE (`most` steps taken without settling: the caller declines too);
+   * STEPS_DECLINED (hand the solve to the
    * fixed-point iteration); STEPS_NEED_GENERAL (a port pivot too small for L·D·Lᵀ: the
    * caller starts again on the general path, which takes the pivoted inverse).
    * @param contractionLimit the row-sum bound on |φ'| (compiledNetwork.ts).
@@ -102,9 +102,9 @@ export class ThreePairPortSteps {
     xRe: Float64Array,
     xIm: Float64Array,
   ): number {
-    const last = Math.min(most, 2);
     this.solves = 0;
-    for (let solves = 1; solves <= last; solves++) {
+    this.lastChange = 0;
+    for (let solves = 1; solves <= most; solves++) {
       this.solves = solves;
       const outcome = this.step(solves, magnitude, threshold, tolerance, vBase, contractionLimit, roundOff, xRe, xIm);
       if (outcome !== STEPS_CONTINUE) return outcome;
@@ -290,9 +290,12 @@ export class ThreePairPortSteps {
     if (solves > 1) {
       const change = Math.sqrt(change2) / vBase;
       if (!Number.isFinite(change)) return STEPS_DECLINED;
+      // The general loop's stop: the error left estimated from the rate changes shrink.
+      const rate = solves > 2 ? Math.min(1, change / this.lastChange) : 1;
       this.lastChange = change;
       const mismatch = Math.max(0, Math.abs(q0), Math.abs(q1), Math.abs(q2));
-      if ((change <= tolerance || change <= roundOff) && mismatch <= tolerance * vBase) return STEPS_SETTLED;
+      if ((change * rate <= tolerance || change <= roundOff) && mismatch <= tolerance * vBase) return STEPS_SETTLED;
+      if (solves > 2 && !(rate < 1)) return STEPS_DECLINED;
     }
     // Z = A⁻¹ = Mᵀ·D⁻¹·M with M = L⁻¹ (invertThreePorts).
     const m10r = -l10r;
