@@ -159,8 +159,19 @@ export interface ConductorResistance {
 
 /** The sizes each table has, for error messages. */
 export function tabulatedSizes(size: ConductorSize, material: ConductorMaterial): string[] {
-  if ('mm2' in size) return Object.keys(IEC_60228_CLASS_2[material]).map((k) => `${k}`);
-  return Object.keys(NEC_TABLE_8[material]).filter((k) => ('kcmil' in size ? k.endsWith('kcmil') : !k.endsWith('kcmil')));
+  // Smallest conductor first, as the tables print them. Object.keys puts integer-like keys ('4', '14')
+  // before the others ('1.5', '1/0'), so the order is restored here.
+  if ('mm2' in size) return Object.keys(IEC_60228_CLASS_2[material]).sort((a, b) => Number(a) - Number(b));
+  return Object.keys(NEC_TABLE_8[material])
+    .filter((k) => ('kcmil' in size ? k.endsWith('kcmil') : !k.endsWith('kcmil')))
+    .sort((a, b) => gaugeOrder(a) - gaugeOrder(b));
+}
+
+/** Sort key, smallest conductor first: 14 AWG … 1 AWG, then 1/0 … 4/0, then kcmil by size. */
+function gaugeOrder(key: string): number {
+  if (key.endsWith(' kcmil')) return Number(key.slice(0, -' kcmil'.length));
+  if (key.endsWith('/0')) return Number(key.slice(0, -2));
+  return -Number(key);
 }
 
 /** Resistance of one conductor at `temperatureC`, or null when the size is not in the table. */
