@@ -23,6 +23,7 @@ import { factorSolveFourInPlace, withPositionalSlots } from '../_internal/fourUn
 import { factorRealInPlace, invertReal3InPlace, multiplyReal3, solveRealFactored } from '../_internal/denseRealLu.js';
 import { LoadPortReduction } from './loadPortReduction.js';
 import { STEPS_CONTINUE, STEPS_DECLINED, STEPS_SETTLED, ThreePairPortSteps } from './threePairPortSteps.js';
+import { iterationSettled, ROUND_OFF_CHANGE } from './iterationSettled.js';
 import { REFERENCE, type Circuit } from './circuit.js';
 import { resolveSolveOptions, type ResolvedSolveOptions, type SolveOptions } from './solveOptions.js';
 
@@ -32,8 +33,6 @@ const DEFAULT_OPTIONS = resolveSolveOptions();
 
 /** A pivot this small against the largest diagonal sends the solve to the dense pivoted LU. */
 const SPARSE_PIVOT_FLOOR = 1e-11;
-/** A voltage change (fraction of nominal) this small is round-off: the iteration has settled. */
-const ROUND_OFF_CHANGE = 1e-14;
 
 /**
  * Newton on the load magnitudes is used up to this many node pairs carrying
@@ -649,18 +648,19 @@ export class CompiledNetwork {
         iterations++;
         lastChange = this.change() / vBase;
         if (!Number.isFinite(lastChange)) throw new NumericalError('non-finite', `the load iteration produced non-finite voltages at iteration ${iterations}`);
-        // A fixed-point step that shrinks by `ratio` each time leaves an error of about
-        // change·ratio/(1 − ratio): stop on that estimate, not on the step alone, so slowly
-        // contracting boards are as accurate as fast ones. The floor is round-off.
+        const settled = iterationSettled(lastChange, previousChange, options.tolerance);
         const ratio = previousChange > 0 ? lastChange / previousChange : 0;
-        const settled = lastChange <= options.tolerance * Math.max(0, 1 - ratio) || lastChange <= ROUND_OFF_CHANGE;
         previousChange = lastChange;
         if (settled) break;
-        if (iterations >= options.maxIterations)
+        if (iterations >= options.maxIterations) {
+          // The error left as the stop judges it, so the message never sets a change below the tolerance against it.
+          const left = ratio < 1 ? (lastChange * ratio) / (1 - ratio) : Infinity;
+          const leftWords = Number.isFinite(left) ? `an estimated ${(left * 100).toPrecision(3)} % left` : 'not shrinking';
           throw new NumericalError(
             'no-convergence',
-            `the voltage-dependent loads did not settle after ${iterations} iterations (last voltage change ${(lastChange * 100).toPrecision(3)} % of nominal, tolerance ${(options.tolerance * 100).toPrecision(3)} %): the loads may exceed what the supply can deliver`,
+            `the voltage-dependent loads did not settle after ${iterations} iterations (last voltage change ${(lastChange * 100).toPrecision(3)} % of nominal, ${leftWords}; tolerance ${(options.tolerance * 100).toPrecision(3)} %): the loads may exceed what the supply can deliver`,
           );
+        }
       }
     }
     this.iterations = iterations;

@@ -66,14 +66,8 @@ export function resolveKernelOptions(options: KernelOptions = {}): ResolvedKerne
   };
 }
 
-/** A voltage change (fraction of nominal) this small is round-off: the iteration has settled. */
-export const ROUND_OFF_CHANGE = 1e-14;
-
-/** solveNetwork's rule: stop when the estimated remaining error change·ratio/(1 − ratio) is below tolerance. */
-export function iterationSettled(change: number, previousChange: number, tolerance: number): boolean {
-  const ratio = previousChange > 0 ? change / previousChange : 0;
-  return change <= tolerance * Math.max(0, 1 - ratio) || change <= ROUND_OFF_CHANGE;
-}
+/** solveNetwork's rule (network/iterationSettled.ts), shared. */
+export { iterationSettled, ROUND_OFF_CHANGE } from '../network/iterationSettled.js';
 
 export function newIntervalState(phases: number): IntervalState {
   return {
