@@ -89,4 +89,21 @@ boards:
     // One board is "1 board", not "1 boards".
     expect(buildInstallationReport({ spec, result: solveInstallation(spec) }).subtitle).toBe(`Installation report · 1 board · ${words} · ${supply.frequencyHz} Hz`);
   });
+  it('a feeder to an exporting board reports the phase whose voltage rises most, not its mildest', () => {
+    // 34 kW of export on a 60 m, 10 mm² sub-feeder, 4 kW of it on phase B alone: phase B rises most.
+    const r = solveInstallation({
+      supply: { ...SUPPLY, transformer: { kVA: 200, impedancePercent: 4, xOverR: 3 } },
+      boards: [
+        { name: 'Main', feeder: { lengthM: 20, line: { mm2: 95 }, neutral: { mm2: 95 } }, loads: [{ name: 'house', connection: 'A-N', kW: 2, pf: 0.95 }] },
+        { name: 'Roof', fedFrom: 'Main', feeder: { lengthM: 60, line: { mm2: 10 }, neutral: { mm2: 10 } }, loads: [{ name: 'PV', connection: 'ABC-star', kW: -30 }, { name: 'PV B', connection: 'B-N', kW: -4 }] },
+      ],
+    });
+    const roof = r.feeders[1]!;
+    const drops = roof.lines.map((l) => l.voltageDropPercent);
+    expect(Math.max(...drops)).toBeLessThan(0); // every phase rises
+    expect(roof.voltageDropPercent).toBe(Math.min(...drops));
+    expect(roof.lines[1]!.voltageDropPercent).toBe(roof.voltageDropPercent);
+    // Hand check (common practice, no source): phase B's rise is about (I_B + I_N)·R of 60 m of 10 mm² copper at 70 °C.
+    expect(roof.voltageDropPercent).toBeLessThan(-3.5);
+  });
 });

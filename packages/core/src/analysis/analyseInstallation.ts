@@ -44,7 +44,9 @@ export function analyseInstallation(solution: InstallationSolution, options: Ana
       lines,
       neutral: r.neutral ? { current: r.neutral.current, loadingPercent: r.neutral.loadingPercent, open: s.board.neutralOpen } : null,
       lossesKW: r.losses.totalKW,
-      voltageDropPercent: Math.max(...lines.map((l) => l.voltageDropPercent)),
+      // The phase whose voltage changes most along the feeder, sign kept: a rise under export (negative)
+      // counts as much as a drop, or an exporting board's worst phase would read as its mildest.
+      voltageDropPercent: lines.reduce((worst, l) => (Math.abs(l.voltageDropPercent) > Math.abs(worst) ? l.voltageDropPercent : worst), lines[0]!.voltageDropPercent),
     };
   };
   const { order } = feedingOrder(installation);

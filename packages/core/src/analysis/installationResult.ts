@@ -27,7 +27,7 @@ export interface FeederReading {
   readonly neutral: { readonly current: Phasor; readonly loadingPercent: number | null; readonly open: boolean } | null;
   /** Conductor losses (lines and neutral; the service feeder also the source windings), kW. */
   readonly lossesKW: number;
-  /** Largest of the per-phase drops, %. For the service feeder, from the source EMF. */
+  /** The per-phase drop largest in size, sign kept (negative: a rise, as under export), %. For the service feeder, from the source EMF. */
   readonly voltageDropPercent: number;
 }
 

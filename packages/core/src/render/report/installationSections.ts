@@ -109,7 +109,7 @@ export function feedersSection(result: InstallationResult): ReportSection {
           fixed(f.voltageDropPercent, 2),
           fixed(f.lossesKW, 3),
         ]),
-        note: 'Loading: the most loaded conductor against its rating (— without ratings). Drop: |V| at the sending end minus |V| at the board, worst phase, % of nominal line-to-neutral voltage; for the service feeder, from the source EMF. Loss: conductor losses (the service feeder also the source windings).',
+        note: 'Loading: the most loaded conductor against its rating (— without ratings). Drop: |V| at the sending end minus |V| at the board, the phase that changes most (negative: a rise), % of nominal line-to-neutral voltage; for the service feeder, from the source EMF. Loss: conductor losses (the service feeder also the source windings).',
       },
     ],
   };
