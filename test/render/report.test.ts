@@ -87,6 +87,9 @@ describe('board report', () => {
     expect(() => parseSvg(svg)).not.toThrow();
     const md = renderReportMarkdown(buildBoardReport({ spec, result }), 'r').markdown;
     expect(md).toContain('L1\\|2');
+    // Raw HTML nowhere in the Markdown, table cells included (a renderer would pass it through).
+    expect(md).not.toMatch(/(^|[^\\])<(script|b)>/);
+    expect(md).toContain('\\<script\\>alert(1)\\</script\\>');
   });
 
   it('Markdown links each figure to an SVG file it returns', () => {

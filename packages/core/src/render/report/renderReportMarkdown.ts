@@ -8,8 +8,12 @@ export interface MarkdownReport {
   readonly files: readonly { readonly name: string; readonly content: string }[];
 }
 
-/** Markdown special characters in table cells and text that would change the layout. */
-const cell = (text: string): string => visibleControls(text.replace(/\\/g, '\\\\').replace(/\|/g, '\\|'));
+/**
+ * Markdown special characters in table cells and text that would change the layout. Angle brackets
+ * in both: a renderer passes raw HTML through, in a table cell as anywhere (a circuit named
+ * `<img onerror=…>` must print as text, not run).
+ */
+const cell = (text: string): string => visibleControls(text.replace(/([\\|<>])/g, '\\$1'));
 const text = (t: string): string => visibleControls(t.replace(/([\\`*_[\]<>])/g, '\\$1'));
 
 /**
