@@ -102,7 +102,7 @@ describe('installation report', () => {
     for (const b of result.boards) {
       const s = doc.sections.find((x) => x.title === `Board: ${b.name}`)!;
       const schedule = table(s, /Circuits as solved/);
-      expect(schedule.columns.map((c) => c.label).slice(0, 8)).toEqual(['No.', 'Circuit', 'Phase', 'Breaker A', 'Model', 'kW', 'kvar', 'A']);
+      expect(schedule.columns.map((c) => c.label).slice(0, 8)).toEqual(['No.', 'Circuit', 'Phase', 'Breaker A, poles', 'Model', 'kW', 'kvar', 'A']);
       const own = spec.boards.find((x) => x.name === b.name)!.loads;
       expect(schedule.rows.map((r) => r[1])).toEqual(own.map((l) => l.name));
       expect(schedule.rows.map((r) => r[2])).toEqual(own.map((l) => l.connection));

@@ -44,11 +44,20 @@ describe('board report', () => {
     const { doc } = reportOf('riverside-cold-store.yaml');
     const schedule = doc.sections.find((s) => s.id === 'schedule')!.blocks[0]!;
     if (schedule.kind !== 'table') throw new Error('the schedule is a table');
-    expect(schedule.columns.map((c) => c.label)).toEqual(['No.', 'Circuit', 'Phase', 'Breaker A', 'Model', 'kW', 'kvar', 'A', 'PF', 'V %nom']);
+    expect(schedule.columns.map((c) => c.label)).toEqual(['No.', 'Circuit', 'Phase', 'Breaker A, poles', 'Model', 'kW', 'kvar', 'A', 'PF', 'V %nom']);
     expect(schedule.rows[0]!.slice(0, 4)).toEqual(['Q1', 'Compressor rack 1', 'ABC-delta', '100']);
     const bakery = reportOf('corner-bakery.yaml').doc.sections.find((s) => s.id === 'schedule')!.blocks[0]!;
     if (bakery.kind !== 'table') throw new Error('the schedule is a table');
-    expect(bakery.rows[0]!.slice(0, 4)).toEqual(['1', 'Deck oven 1', 'A-B', '—']);
+    // No circuit numbers in the file: none invented.
+    expect(bakery.rows[0]!.slice(0, 4)).toEqual(['—', 'Deck oven 1', 'A-B', '—']);
+    // Poles beside the rating, and a pf left out of the file marked as solve marks it.
+    const cabin = reportOf('pine-hollow-cabin.yaml').doc.sections.find((s) => s.id === 'schedule')!.blocks[0]!;
+    if (cabin.kind !== 'table') throw new Error('the schedule is a table');
+    expect(cabin.rows[0]![0]).toBe('1,3');
+    expect(cabin.rows[0]![3]).toBe('30 2P');
+    const heaters = cabin.rows.find((r) => r[1] === 'Space heaters')!;
+    expect(heaters[8]).toMatch(/ \*$/);
+    expect(cabin.note).toMatch(/pf not given in the file, taken as 1/);
   });
 
   it('names only the standards that apply: no sequence or motor standards on a split-phase board', () => {

@@ -93,16 +93,17 @@ export function scheduleTable(loads: BoardBaseSpec['loads'], result: BoardResult
   const rows = boardLoads.map((l, k) => {
     const entered = loads[k];
     const worst = worstBranch(l);
+    // Circuit numbers and breakers only as the file gives them: a schedule never numbers circuits itself.
     return [
-      entered?.circuit ?? String(k + 1),
+      entered?.circuit ?? '—',
       l.name,
       labelIn(result.conventions.phaseNames, l.connection),
-      entered?.breakerA !== undefined ? fixed(entered.breakerA, 0) : '—',
+      entered?.breakerA !== undefined ? `${fixed(entered.breakerA, 0)}${entered.poles !== undefined ? ` ${entered.poles}P` : ''}` : '—',
       l.model,
       fixed(l.kW, 2),
       fixed(l.kvar, 2),
       fixed(l.currentA, 1),
-      pfWords(l.pf, l.sense),
+      `${pfWords(l.pf, l.sense)}${l.pfAssumed ? ' *' : ''}`,
       worst ? fixed(worst.voltagePercent, 1) : '—',
     ];
   });
@@ -113,7 +114,7 @@ export function scheduleTable(loads: BoardBaseSpec['loads'], result: BoardResult
       { label: 'No.' },
       { label: 'Circuit' },
       { label: 'Phase' },
-      { label: 'Breaker A', align: 'right' },
+      { label: 'Breaker A, poles', align: 'right' },
       { label: 'Model' },
       { label: 'kW', align: 'right' },
       { label: 'kvar', align: 'right' },
@@ -123,8 +124,8 @@ export function scheduleTable(loads: BoardBaseSpec['loads'], result: BoardResult
     ],
     rows,
     note: `A: largest current the circuit draws from one line. V %nom: the lowest voltage across any part of the circuit, % of its nominal voltage.${
-      loads.some((l) => l.breakerA !== undefined || l.circuit !== undefined) ? '' : ' Circuit numbers and breaker ratings come from the circuit and breakerA fields of each load in the board file.'
-    }`,
+      loads.some((l) => l.breakerA !== undefined || l.circuit !== undefined) ? '' : ' No. and breaker: from the circuit, breakerA and poles fields of each load in the board file (none given here).'
+    }${boardLoads.some((l) => l.pfAssumed) ? ' *: pf not given in the file, taken as 1 (a resistive load).' : ''}`,
   };
 }
 
