@@ -33,5 +33,9 @@ describe('reports of a collapsed supply', () => {
     const shed = md.slice(md.indexOf('Far shed', md.indexOf('## ')));
     expect(md.match(/Supply collapse: the supply cannot carry these loads/g)).toHaveLength(1);
     expect(shed).toMatch(/Supply collapse/);
+    // Said first, before the feeders and totals, naming the board.
+    const first = md.indexOf('Supply collapse at Far shed: the supply cannot carry these loads; the figures below are not a working installation.');
+    expect(first).toBeGreaterThan(-1);
+    expect(first).toBeLessThan(md.indexOf('Feeders'));
   });
 });

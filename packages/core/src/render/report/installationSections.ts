@@ -60,7 +60,19 @@ export function installationDescription(spec: InstallationBaseSpec, result: Inst
     ['Boards', `${result.installation.boardCount}, main board ${result.boards[0]!.name}`],
     ['Circuits', `${circuits}`],
   ];
-  const blocks: ReportBlock[] = [{ kind: 'facts', items }];
+  const blocks: ReportBlock[] = [];
+  // As `trivar solve` does: a collapse anywhere is said before any figure, so none is read as a working installation.
+  const collapsed = result.boards.filter((b) => b.result.operatingPoint.collapsed);
+  if (collapsed.length)
+    blocks.push({
+      kind: 'list',
+      tone: 'warning',
+      items: [
+        `Supply collapse at ${collapsed.map((b) => b.name).join(', ')}: the supply cannot carry these loads; the figures below are not a working installation.`,
+        ...collapsed.flatMap((b) => b.result.operatingPoint.findings.map((f) => `${b.name}: ${f}`)),
+      ],
+    });
+  blocks.push({ kind: 'facts', items });
   if (spec.note) blocks.push({ kind: 'paragraph', text: spec.note });
   blocks.push({
     kind: 'table',
