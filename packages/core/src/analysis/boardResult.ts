@@ -132,7 +132,10 @@ export interface BoardWarning {
 }
 
 export interface OpenNeutralLoadReading {
+  /** The circuit's name; for a circuit of a board fed from this one, followed by that board's name in brackets. */
   readonly name: string;
+  /** For a circuit of a board fed (directly or further) from this one, which shares the broken neutral: that board. */
+  readonly board?: string;
   readonly phase: PhaseId;
   readonly voltage: number;
   readonly voltagePercent: number;

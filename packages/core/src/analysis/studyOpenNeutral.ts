@@ -6,9 +6,12 @@
  * all-impedance answer, any other solution of the same equations, and whether
  * the low-voltage rule of the load model decides the result.
  */
-import { abs, sub, toPhasor } from '../complex.js';
+import { abs, sub, toPhasor, ZERO, type ComplexValue } from '../complex.js';
 import { NumericalError } from '../errors.js';
-import type { Board, PhaseId } from '../board/boardModel.js';
+import type { Board, LoadBranch, PhaseId } from '../board/boardModel.js';
+import { installationOf } from '../network/installationModel.js';
+import { buildInstallationCircuit } from '../network/installationCircuit.js';
+import { REFERENCE } from '../network/circuit.js';
 import { solveNetwork, terminalVoltage, type NetworkSolution, type SolveOptions } from '../network/solveNetwork.js';
 import { solveNetworkByNewton } from '../network/solveNetworkByNewton.js';
 import { followNeutralBreak, withNeutralFault } from './followNeutralBreak.js';
@@ -24,25 +27,76 @@ import { OPEN_NEUTRAL_LIMITS, openNeutralFindings } from './openNeutralWording.j
 /** "No low-voltage rule": constant power held down to 5 % of nominal, low enough that no state this study reports gets there in practice. */
 const RULE_OFF_THRESHOLD = 0.05;
 
-function readState(board: Board, solution: NetworkSolution, threshold: number): OpenNeutralState {
+/** What one line-to-neutral branch sees across it. */
+function loadReading(name: string, b: LoadBranch, voltage: ComplexValue, threshold: number, board?: string): OpenNeutralLoadReading {
   const band = WARNING_THRESHOLDS.voltageBandPercent;
+  const percent = (100 * abs(voltage)) / b.vNominal;
+  return {
+    name: board === undefined ? name : `${name} (${board})`,
+    ...(board === undefined ? {} : { board }),
+    phase: (b.to === 'N' ? b.from : b.to) as PhaseId,
+    voltage: abs(voltage),
+    voltagePercent: percent,
+    flag: percent > 100 + band ? 'over' : percent < 100 - band ? 'under' : 'ok',
+    belowLowVoltageRule: b.zip.z < 1 && percent < 100 * threshold,
+  };
+}
+
+/**
+ * The line-to-neutral circuits of the boards fed (directly or further) from this board of an
+ * installation: its feeder's neutral is theirs too, so the break floats their bars with it. The
+ * solution is of the whole installation (the broken neutral in this board's feeder), so their
+ * voltages are read off the same node voltages.
+ */
+function fedBoardReadings(board: Board, solution: NetworkSolution, threshold: number): OpenNeutralLoadReading[] {
+  const fed = fedBoards(board);
+  if (!fed.length) return [];
+  const { installation } = installationOf(board);
+  const layout = buildInstallationCircuit(installation);
+  const v = solution.nodeVoltages;
+  const at = (node: number) => (node === REFERENCE ? ZERO : v[node]);
+  const out: OpenNeutralLoadReading[] = [];
+  for (const d of fed) {
+    const sb = installation.subBoards[d - 1]!;
+    let k = layout.branchOffset[d]!;
+    for (const load of sb.loads)
+      for (const b of load.branches) {
+        const cb = layout.circuit.branches[k++]!;
+        if (b.to !== 'N' && b.from !== 'N') continue;
+        const from = at(cb.from);
+        const to = at(cb.to);
+        if (!from || !to || abs(b.sNominal) === 0) continue;
+        out.push(loadReading(load.name, b, sub(from, to), threshold, sb.name));
+      }
+  }
+  return out;
+}
+
+/** Indices (in the installation) of the boards fed directly or further from this board. */
+function fedBoards(board: Board): number[] {
+  if (!board.installation) return [];
+  const { installation, boardIndex } = installationOf(board);
+  const feeding = (d: number) => installation.subBoards[d - 1]!.fedFrom;
+  const below = (d: number) => {
+    for (let x = d; x !== 0; x = feeding(x)) if (feeding(x) === boardIndex) return true;
+    return false;
+  };
+  return installation.subBoards.map((_, i) => i + 1).filter(below);
+}
+
+const hasNeutralLoads = (loads: Board['loads']) => loads.some((l) => l.branches.some((b) => (b.from === 'N' || b.to === 'N') && abs(b.sNominal) > 0));
+
+function readState(board: Board, solution: NetworkSolution, threshold: number): OpenNeutralState {
   const loads: OpenNeutralLoadReading[] = [];
   board.loads.forEach((load, li) =>
     load.branches.forEach((b, bi) => {
       if (b.to !== 'N' && b.from !== 'N') return;
       const state = solution.branches[li]![bi]!;
       if (!state.energised) return;
-      const percent = (100 * abs(state.voltage)) / b.vNominal;
-      loads.push({
-        name: load.name,
-        phase: (b.to === 'N' ? b.from : b.to) as PhaseId,
-        voltage: abs(state.voltage),
-        voltagePercent: percent,
-        flag: percent > 100 + band ? 'over' : percent < 100 - band ? 'under' : 'ok',
-        belowLowVoltageRule: b.zip.z < 1 && percent < 100 * threshold,
-      });
+      loads.push(loadReading(load.name, b, state.voltage, threshold));
     }),
   );
+  loads.push(...fedBoardReadings(board, solution, threshold));
   const bar = terminalVoltage(solution, 'N');
   const percents = loads.map((l) => l.voltagePercent);
   return {
@@ -110,8 +164,9 @@ export function studyOpenNeutral(board: Board, options?: SolveOptions): OpenNeut
   });
   if (!board.hasNeutral) return notApplicable('a three-phase-3wire board has no neutral conductor to lose');
   if (board.system === 'single-phase') return notApplicable('on a single-phase 2-wire board a broken neutral simply de-energises every load');
-  if (!board.loads.some((l) => l.branches.some((b) => (b.from === 'N' || b.to === 'N') && abs(b.sNominal) > 0)))
-    return notApplicable('no line-to-neutral loads on this board, so a broken neutral changes nothing');
+  const fedLoads = board.installation ? fedBoards(board).flatMap((d) => installationOf(board).installation.subBoards[d - 1]!.loads) : [];
+  if (!hasNeutralLoads(board.loads) && !hasNeutralLoads(fedLoads))
+    return notApplicable('no line-to-neutral loads on this board or the boards it feeds, so a broken neutral changes nothing');
   const threshold = options?.lowVoltageThreshold ?? 0.7;
   const open = withNeutralFault(board, null);
   let path;
