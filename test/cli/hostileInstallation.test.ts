@@ -22,6 +22,13 @@ describe('hostile installations through the CLI', () => {
     expect(r.stdout).toMatch(/Feeders/);
   });
 
+  it('a board with limits of its own is judged and named against them, not against the main board\'s', () => {
+    const text = `${SUPPLY}\nboards:\n  - { name: Main, loads: [{ name: ovens, connection: ABC-delta, kW: 40, pf: 1 }] }\n  - { name: Lab, fedFrom: Main, voltageLimits: { underPercent: 0.5, overPercent: 0.5 }, feeder: { lengthM: 40, line: { mm2: 16 }, neutral: { mm2: 16 } }, loads: [{ name: rig, connection: A-N, kW: 6 }] }\n`;
+    const r = runTrivar(['solve', '-'], text);
+    expect(r.code).toBe(0);
+    const line = r.stdout.slice(r.stdout.indexOf('voltage limits')).split('\n\n')[0]!.replace(/\s+/g, ' ');
+    expect(line).toMatch(/^voltage limits ±10 % \(en50160-supply\), 1 board with limits of its own: outside at Lab \(under, against its own ±0\.5 % \(custom\)\)/);
+  });
   it('a 500-board chain solves, and the board table indents no deeper than six levels', () => {
     const boards = ['  - { name: B0, loads: [] }'];
     for (let k = 1; k < 500; k++)

@@ -19,9 +19,20 @@ const VERDICT_CELL = { within: 'ok', under: 'UNDER', over: 'OVER', 'under-and-ov
 /** One line for the whole installation, from the same per-board verdicts the table shows. */
 function limitsLine(r: InstallationResult): string {
   const limits = r.boards[0]!.result.voltageCheck.limits;
+  const wordsOf = (l: typeof limits) => `${bandWords(l)} (${l.preset})`;
+  const main = wordsOf(limits);
+  // A board judged against limits of its own says which: the line's limits are the main board's.
+  const own = (b: InstallationResult['boards'][number]) => {
+    const w = wordsOf(b.result.voltageCheck.limits);
+    return w === main ? '' : `, against its own ${w}`;
+  };
   const outside = r.boards.filter((b) => b.result.voltageCheck.verdict !== 'within');
-  const verdict = outside.length === 0 ? 'every board within' : `outside at ${outside.map((b) => `${b.name} (${VERDICT_CELL[b.result.voltageCheck.verdict].toLowerCase()})`).join(', ')}`;
-  return wrapText(`voltage limits ${bandWords(limits)} (${limits.preset}): ${verdict}`, '  ');
+  const verdict =
+    outside.length === 0
+      ? 'every board within its limits'
+      : `outside at ${outside.map((b) => `${b.name} (${VERDICT_CELL[b.result.voltageCheck.verdict].toLowerCase()}${own(b)})`).join(', ')}`;
+  const others = r.boards.filter((b) => own(b) !== '').length;
+  return wrapText(`voltage limits ${main}${others ? `, ${others} board${others === 1 ? ' with limits of its own' : 's with limits of their own'}` : ''}: ${verdict}`, '  ');
 }
 
 function boardTable(r: InstallationResult): string {
