@@ -70,4 +70,16 @@ describe('breaker warnings by region', () => {
         expect(breakerCodes(r).length > 0, `${kW} kW, continuous ${continuous}: ${amps} A`).toBe(amps > 20 * share);
       }
   });
+  it('a circuit a hair over its breaker shows the digits that put it over, and does not claim the breaker trips', () => {
+    // 3.7 kW at unity PF on 230.9 V draws 16.02 A (the supply is ideal, so the load sees its nominal voltage).
+    const r = solveBoard({
+      supply: { system: 'three-phase-4wire', voltage: { lineToLine: 400 }, frequencyHz: 50 },
+      loads: [{ name: 'Sockets', connection: 'A-N', kW: 3.7, pf: 1, breakerA: 16 }],
+    });
+    const w = r.warnings.find((x) => x.code === 'circuit-over-breaker')!;
+    expect(w.value).toBeGreaterThan(16);
+    expect(w.value).toBeLessThan(16.05);
+    expect(w.message).toMatch(/draws 16\.02 A, above its 16 A breaker/);
+    expect(w.message).not.toMatch(/would trip/);
+  });
 });

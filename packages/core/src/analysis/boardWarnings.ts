@@ -32,6 +32,11 @@ export const WARNING_THRESHOLDS = {
 export const ROUND_OFF_MARGIN = 1e-9;
 
 const fmt = (x: number, digits = 1) => x.toFixed(digits);
+/** A value above `limit` with the digits that show it is above (16.04 A beside 16 A, not 16.0). */
+const above = (x: number, limit: number) => {
+  for (let digits = 1; digits < 4; digits++) if (+x.toFixed(digits) > limit) return x.toFixed(digits);
+  return x.toFixed(4);
+};
 /** Amps to 0.1 A, or to 2 significant figures when that would print a non-zero current as 0.0. */
 const amps = (x: number) => (x === 0 || x >= 0.05 ? x.toFixed(1) : x.toPrecision(2));
 
@@ -123,7 +128,7 @@ export function boardWarnings(input: {
     if (load.currentA > load.breakerA)
       out.push({
         code: 'circuit-over-breaker',
-        message: `circuit "${load.name}" draws ${fmt(load.currentA)} A, above its ${rating} A breaker (${rule.words}): sustained, it would trip the breaker; check the load and the rating in the file`,
+        message: `circuit "${load.name}" draws ${above(load.currentA, load.breakerA)} A, above its ${rating} A breaker (${rule.words}): the circuit is overloaded; a small overload can run for hours before a breaker trips, heating the cable meanwhile; check the load and the rating in the file`,
         value: load.currentA,
         threshold: load.breakerA,
       });
