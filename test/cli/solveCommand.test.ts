@@ -19,6 +19,14 @@ describe('trivar solve (built binary)', () => {
     expect(r.stdout).toContain('licensed professional');
   });
 
+  it('a balanced board: the N row shows no angle for a bar voltage of round-off size or for no neutral current', () => {
+    const board = `supply: { system: three-phase-4wire, voltage: { lineToLine: 400 }, frequencyHz: 50, transformer: { kVA: 100, impedancePercent: 4, xOverR: 3 } }\nfeeder: { line: { r: 0.02, x: 0.01 }, neutral: { r: 0.02, x: 0.01 } }\nloads: [{ name: heater, connection: ABC-star, kW: 9, pf: 1, model: constant-impedance }]\n`;
+    const r = runTrivar(['solve', '-'], board);
+    expect(r.code).toBe(0);
+    const n = r.stdout.split('\n').find((l) => /^\s+N\s/.test(l))!;
+    // "N", the bar voltage 0.0 and the neutral current 0.0, nothing else (no angles).
+    expect(n.trim().split(/\s+/)).toEqual(['N', '0.0', '0.0']);
+  });
   it('--json prints exactly the library result', () => {
     const r = runTrivar(['solve', 'examples/corner-bakery.yaml', '--json']);
     expect(r.code).toBe(0);

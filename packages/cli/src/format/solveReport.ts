@@ -65,15 +65,17 @@ function phaseTable(r: BoardResult): string {
     pfCell(p),
     p.loadingPercent === null ? '' : fixed(p.loadingPercent, 0),
   ]);
+  // A bar voltage of round-off size (a balanced board's bar sits at the star point) or no current has no angle to show.
+  const barAngle = (v: { magnitude: number; angleDeg: number }) => (v.magnitude > 1e-9 * r.board.nominalLineToNeutralV ? fixed(v.angleDeg, 1) : '');
   if (r.neutral)
     rows.push([
       'N',
       r.neutral.barVoltage ? fixed(r.neutral.barVoltage.magnitude, 1) : '',
-      r.neutral.barVoltage ? fixed(r.neutral.barVoltage.angleDeg, 1) : '',
+      r.neutral.barVoltage ? barAngle(r.neutral.barVoltage) : '',
       '',
       '',
       fixed(r.neutral.current.magnitude, 1),
-      fixed(r.neutral.current.angleDeg, 1),
+      r.neutral.current.magnitude > 0 ? fixed(r.neutral.current.angleDeg, 1) : '',
       '',
       '',
       '',
