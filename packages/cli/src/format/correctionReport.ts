@@ -1,5 +1,5 @@
 /** CorrectionReport → the human-readable report of `trivar correct` (fits 100 columns). */
-import { labellerOf, meteringPointWords, type BankSelection, type BankStep, type BeforeAfter, type BranchSizing, type CompensatorSizing, type ControllerSettings, type CorrectionReport, type CorrectionVerification, type PhaseLabeller } from '@trivar/core';
+import { labellerOf, meteringPointWords, type BankSelection, type BankStep, type BeforeAfter, type BranchSizing, type CompensatorSizing, type ControllerSettings, type CorrectionReport, type CorrectionVerification, type PhaseId, type PhaseLabeller } from '@trivar/core';
 import { fixed, renderTable, section } from './textTable.js';
 import { headerLines } from './solveReport.js';
 import { wrapText } from './wrapText.js';
@@ -206,13 +206,24 @@ function boardLines(v: CorrectionVerification): string {
   return out.map((l) => `  ${l}`).join('\n');
 }
 
+/**
+ * The high-capacitance check in words. A line that already led before correction is judged by
+ * whether it leads more, so "no line leads" would contradict the table beside it.
+ */
+function highEndWords(check: { readonly leadingLines: readonly PhaseId[]; readonly leadingBefore: readonly PhaseId[] }, label: PhaseLabeller): string {
+  if (check.leadingLines.length) return `line${check.leadingLines.length > 1 ? 's' : ''} ${check.leadingLines.map(label).join(', ')} lead${check.leadingLines.length > 1 ? '' : 's'} beyond the bound`;
+  if (check.leadingBefore.length)
+    return `no line leads more than before (${check.leadingBefore.map(label).join(', ')} already led before correction)`;
+  return 'no line leads';
+}
+
 /** `detuned`: the bank's steps sit behind reactors, so √(S_sc/Qc) does not apply (the harmonic check covers it). */
 function checksBlock(v: CorrectionVerification, detuned = false): string {
   const out: string[] = [];
   const label = labelsOf(v);
   const t = v.tolerance;
   out.push(
-    `capacitance ×${t.low.capacitanceFactor}: target ${t.low.check.met ? 'met' : 'NOT met'} · ×${t.high.capacitanceFactor}: ${t.high.check.leadingLines.length ? `lines ${t.high.check.leadingLines.map(label).join(', ')} lead` : 'no line leads'}`,
+    `capacitance ×${t.low.capacitanceFactor}: target ${t.low.check.met ? 'met' : 'NOT met'} · ×${t.high.capacitanceFactor}: ${highEndWords(t.high.check, label)}`,
   );
   const vr = v.voltageRise;
   out.push(

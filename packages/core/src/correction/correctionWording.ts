@@ -74,7 +74,7 @@ export const infeasibleReason = {
   exporting: 'the board exports active power, so a power-factor target has no meaning for it',
   noLoad: 'the board draws no active power (every load is zero or off), so there is nothing to correct',
   capacitorsCannotReach: (shortfalls: readonly string[]) =>
-    `no capacitor-only bank of this arrangement meets the target without breaking a bound; the best reachable leaves: ${shortfalls.join('; ')}`,
+    `no capacitor-only bank of this arrangement meets the target without breaking a bound; even sized exactly (before units are chosen) the best it reaches leaves: ${shortfalls.join('; ')}`,
   notConverged: (iterations: number, change: number) =>
     `the sizing did not settle in ${iterations} re-solves (last change ${change.toExponential(2)} of the board's apparent power)`,
   needsReactors: (branches: readonly PhaseLabel[], all: readonly { branch: PhaseLabel; element: string; kvarAtNominalV: number }[]) =>
