@@ -1,18 +1,18 @@
 /**
  * Wording follows the board's region: a North-American split-phase (120/240 V) report
- * speaks of the centre tap and the grounded conductor (neutral) and never of PEN, TN-C-S
+ * speaks of the center tap and the grounded conductor (neutral) and never of PEN, TN-C-S
  * or a star point; an IEC board keeps the IEC words; the region can be set in the file.
  */
 import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
-import { readBoardText, solveBoard } from '@trivar/core';
+import { buildBoardReport, normaliseBoard, parseBoard, readBoardText, renderReportMarkdown, solveBoard, solveBoardModel } from '@trivar/core';
 import { runTrivar } from '../cli/runTrivar.js';
 import { renderSolveReport } from '../../packages/cli/src/format/solveReport.js';
 
 const ROOT = new URL('../../', import.meta.url);
 const example = (name: string) => readBoardText(readFileSync(new URL(`examples/${name}`, ROOT), 'utf8')) as Record<string, unknown>;
 const IEC_TERMS = /\bPEN\b|TN-C-S|TN-S|star point|\bearth(ed|ing)?\b/;
-const NORTH_AMERICAN_TERMS = /centre tap|grounded conductor|wye point|\bgrounding\b/;
+const NORTH_AMERICAN_TERMS = /cent(er|re) tap|grounded conductor|wye point|\bgrounding\b/;
 
 describe('region wording', () => {
   it('a 120/240 V split-phase report (with the broken-neutral study) has no IEC terms', () => {
@@ -20,12 +20,22 @@ describe('region wording', () => {
     expect(r.conventions).toMatchObject({ region: 'north-america', regionBasis: 'notation', phaseNames: 'A/B/C' });
     const text = renderSolveReport(r);
     expect(text).not.toMatch(IEC_TERMS);
-    expect(text).toMatch(/centre tap/);
+    expect(text).toMatch(/center tap/);
+    expect(text).not.toMatch(/centre/);
     expect(text).toMatch(/grounded conductor \(neutral\)/);
     expect(r.openNeutral?.cautions.join(' ')).not.toMatch(IEC_TERMS);
   });
 
-  it('an IEC board keeps PEN and TN-C-S and never speaks of a centre tap or grounded conductor', () => {
+  it('the split-phase report (HTML/Markdown) floats the bar from the center tap, and has no three-phase lead/lag note', () => {
+    const spec = parseBoard(example('pine-hollow-cabin.yaml'));
+    const result = solveBoardModel(normaliseBoard(spec));
+    const md = renderReportMarkdown(buildBoardReport({ spec, result }), 'r').markdown;
+    expect(md).toMatch(/The neutral bar would float to [\d.]+ V from the transformer center tap\./);
+    expect(md).not.toMatch(IEC_TERMS);
+    expect(renderSolveReport(result)).not.toMatch(/one line leads, the other lags/);
+  });
+
+  it('an IEC board keeps PEN and TN-C-S and never speaks of a center tap or grounded conductor', () => {
     const text = renderSolveReport(solveBoard(example('corner-bakery.yaml')));
     expect(text).toMatch(/TN-C-S/);
     expect(text).toMatch(/\(PEN\)/);

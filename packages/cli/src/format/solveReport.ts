@@ -27,7 +27,7 @@ function dropDefinition(r: BoardResult): string {
 /** A phase, line pair or connection (A/B/C inside) as this board's report labels it. */
 export const labeller = (r: BoardResult) => (term: string) => labelIn(r.conventions.phaseNames, term);
 
-/** The region's words for this board (centre tap and grounded conductor in North America). */
+/** The region's words for this board (center tap and grounded conductor in North America). */
 export const wordsOf = (r: BoardResult) => regionWords(r.conventions.region, r.board.system as Parameters<typeof regionWords>[1]);
 
 /** The voltage-limit verdict, judged on the printed figures as the warnings are. */
@@ -106,7 +106,8 @@ function phaseTable(r: BoardResult): string {
         ? `N row: neutral bar voltage to ${words.sourceNeutralPoint}, and the neutral current.`
         : `N row: neutral bar voltage to ${words.sourceNeutralPoint}, and the current in the ${words.neutralConductor}.`,
     );
-  if (r.loads.some((l) => /^[ABC]-[ABC]$|delta/.test(l.connection)))
+  // Three-phase only: on a split-phase board the two lines are 180° apart, so a load across them is in phase with both.
+  if (r.board.system !== 'split-phase' && r.loads.some((l) => /^[ABC]-[ABC]$|delta/.test(l.connection)))
     notes.push('Line-to-line loads split their power unevenly between their two lines: one line leads, the other lags.');
   for (const p of r.phases) {
     const sentence = exportSentence(`Line ${label(p.phase)}`, p, 'exports');

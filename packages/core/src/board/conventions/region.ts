@@ -1,5 +1,5 @@
 /**
- * The region whose conventions a board follows: its wording (centre tap and grounded
+ * The region whose conventions a board follows: its wording (center tap and grounded
  * conductor in North America; PEN and TN-C-S elsewhere), its default phase names and
  * voltage limits. Given in the file (`conventions.region`), or inferred, first rule that
  * applies wins:

@@ -2,14 +2,14 @@
  * The words a report uses for the things regions name differently. IEC practice
  * (IEC 60364 wording): the source star point, PEN conductors and TN-C-S earthing.
  * North-American practice (NEC wording): the grounded conductor (neutral), the
- * transformer's centre tap on a split-phase (120/240 V) service, the wye point of a
+ * transformer's center tap on a split-phase (120/240 V) service, the wye point of a
  * star, grounding and bonding. Every region-specific sentence of a board report is here.
  */
 import type { SystemKind } from '../boardSchema.js';
 import type { Region } from './region.js';
 
 export interface RegionWords {
-  /** The point the source's phase voltages are measured from: "the source star point", "the transformer centre tap". */
+  /** The point the source's phase voltages are measured from: "the source star point", "the transformer center tap". */
   readonly sourceNeutralPoint: string;
   /** The neutral conductor, first mention: "neutral", "grounded conductor (neutral)". */
   readonly neutralConductor: string;
@@ -35,7 +35,7 @@ export function regionWords(region: Region, system: SystemKind): RegionWords {
   const split = system === 'split-phase';
   if (region === 'north-america')
     return {
-      sourceNeutralPoint: split ? 'the transformer centre tap' : 'the source wye point',
+      sourceNeutralPoint: split ? 'the transformer center tap' : 'the source wye point',
       neutralConductor: 'grounded conductor (neutral)',
       phasesWord: split ? 'leg' : 'phases',
       groundWord: 'ground',

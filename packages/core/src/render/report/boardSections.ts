@@ -278,7 +278,7 @@ export function openNeutralSection(result: BoardResult): ReportSection | null {
     id: 'open-neutral',
     title: 'If the neutral conductor broke',
     blocks: [
-      { kind: 'paragraph', text: `The neutral bar would float to ${fixed(on.barVoltage?.magnitude ?? 0, 1)} V from the source star point.` },
+      { kind: 'paragraph', text: `The neutral bar would float to ${fixed(on.barVoltage?.magnitude ?? 0, 1)} V from ${regionWords(result.conventions.region, result.board.system as SystemKind).sourceNeutralPoint}.` },
       {
         kind: 'table',
         caption: 'Voltage each line-to-neutral circuit would see',
