@@ -29,6 +29,16 @@ describe('hostile installations through the CLI', () => {
     const line = r.stdout.slice(r.stdout.indexOf('voltage limits')).split('\n\n')[0]!.replace(/\s+/g, ' ');
     expect(line).toMatch(/^voltage limits ±10 % \(en50160-supply\), 1 board with limits of its own: outside at Lab \(under, against its own ±0\.5 % \(custom\)\)/);
   });
+  it('a board that feeds others: its power balance adds up as printed, and a sub-board is fed from its board, not the supply', () => {
+    const r = runTrivar(['solve', 'examples/maple-court-riser.yaml', '--board', 'Floor 3']);
+    expect(r.code).toBe(0);
+    const block = r.stdout.slice(r.stdout.indexOf('Power balance'));
+    const kW = (label: string) => Number(new RegExp(`\\n {2}${label} +(-?[\\d.]+) kW`).exec(block)![1]);
+    const sum = kW('loads') + kW('losses') + kW('boards beyond');
+    expect(Math.abs(sum - kW('from Floor 2'))).toBeLessThanOrEqual(0.002); // three figures rounded to 0.001 kW
+    expect(block).toMatch(/losses +[\d.]+ kW \(its feeder: line conductors/);
+    expect(block.slice(0, block.indexOf('incomer'))).not.toMatch(/from the supply|source 0\.000/);
+  });
   it('a 500-board chain solves, and the board table indents no deeper than six levels', () => {
     const boards = ['  - { name: B0, loads: [] }'];
     for (let k = 1; k < 500; k++)

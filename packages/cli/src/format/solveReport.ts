@@ -214,13 +214,25 @@ function powerFactorBlock(r: BoardResult): string {
 function powerBlock(r: BoardResult): string {
   const l = r.losses;
   const generating = r.loads.some((load) => isExport(load.kW));
+  // A sub-board is fed by the board above it, through its feeder only (no source windings of its own).
+  const feeding = r.incomer?.fedFrom ?? null;
   const supply = fixed(r.source.kW, 3).startsWith('-')
-    ? `  ${'to the supply'.padEnd(16)} ${fixed(-r.source.kW, 3)} kW exported; the board ${varWords(r.source.kvar, 3)}`
-    : `  ${'from the supply'.padEnd(16)} ${fixed(r.source.kW, 3)} kW, ${fixed(r.source.kvar, 3)} kvar`;
+    ? `  ${(feeding ? `to ${feeding}` : 'to the supply').padEnd(16)} ${fixed(-r.source.kW, 3)} kW exported; the board ${varWords(r.source.kvar, 3)}`
+    : `  ${(feeding ? `from ${feeding}` : 'from the supply').padEnd(16)} ${fixed(r.source.kW, 3)} kW, ${fixed(r.source.kvar, 3)} kvar`;
   const row = (label: string, text: string) => `  ${label.padEnd(16)} ${text}`;
+  // What the board passes on to the boards it feeds (their loads and feeders): the balance's missing term on a board that feeds others.
+  const beyondKW = r.source.kW - r.totals.kW - l.totalKW;
+  const beyondKvar = r.source.kvar - r.totals.kvar - l.totalKvar;
+  const feedsOthers = Math.abs(beyondKW) + Math.abs(beyondKvar) > 1e-6 * Math.max(1, Math.abs(r.source.kW) + Math.abs(r.source.kvar));
   return [
     row(generating ? 'loads (net)' : 'loads', `${fixed(r.totals.kW, 3)} kW, ${fixed(r.totals.kvar, 3)} kvar`),
-    row('losses', `${fixed(l.totalKW, 3)} kW (source ${fixed(l.sourceKW, 3)}, line conductors ${fixed(l.lineFeederKW, 3)}, neutral ${fixed(l.neutralKW, 3)})`),
+    row(
+      'losses',
+      feeding
+        ? `${fixed(l.totalKW, 3)} kW (its feeder: line conductors ${fixed(l.lineFeederKW, 3)}, neutral ${fixed(l.neutralKW, 3)})`
+        : `${fixed(l.totalKW, 3)} kW (source ${fixed(l.sourceKW, 3)}, line conductors ${fixed(l.lineFeederKW, 3)}, neutral ${fixed(l.neutralKW, 3)})`,
+    ),
+    ...(feedsOthers ? [row('boards beyond', `${fixed(beyondKW, 3)} kW, ${fixed(beyondKvar, 3)} kvar (the boards it feeds, with their feeders)`)] : []),
     supply,
     ...(r.transformer
       ? [row('transformer', `${fixed(r.transformer.kVA, 2)} kVA at its terminals; ${fixed(r.transformer.loadingPercent, 0)} % of rated current (${fixed(r.transformer.ratedKVA, 0)} kVA)`)]
