@@ -274,3 +274,36 @@ describe('voltage band: a bank on a far board lifts a load back inside the band'
     expect(c.effect.boards.find((b) => b.name === 'Farmhouse')!.loadsOutsideVoltageBand).toEqual({ before: 0, after: 0, change: 0 });
   });
 });
+describe('the effect on a board already outside its band', () => {
+  it('counts the board\'s own circuits outside its band, not the bank added to it', () => {
+    const spec = parseInstallation({
+      supply: { system: 'three-phase-4wire', voltage: { lineToLine: 400 }, frequencyHz: 50, transformer: { kVA: 100, impedancePercent: 4, xOverR: 3 } },
+      boards: [
+        { name: 'Main', feeder: { lengthM: 30, line: { mm2: 50 }, neutral: { mm2: 50 } }, loads: [{ name: 'm1', connection: 'ABC-delta', kW: 20, pf: 0.8 }] },
+        {
+          name: 'Sub',
+          fedFrom: 'Main',
+          voltageLimits: { underPercent: 2, overPercent: 2 },
+          feeder: { lengthM: 50, line: { mm2: 16 }, neutral: { mm2: 16 } },
+          loads: [
+            { name: 's1', connection: 'ABC-star', kW: 9, pf: 0.9 },
+            { name: 'a', connection: 'A-N', kW: 3 },
+          ],
+        },
+      ],
+    });
+    const corrected = correctInstallation(normaliseInstallation(spec).installation, { arrangement: 'star-bank', target: { pf: 0.99 } }, { board: 'Sub' });
+    const sub = corrected.effect.boards.find((b) => b.name === 'Sub')!;
+    const after = corrected.report.verification.after;
+    const added = after.loads.filter((l) => l.origin === 'added').map((l) => `"${l.name}"`);
+    const band = after.warnings.filter((w) => w.code === 'overvoltage' || w.code === 'undervoltage');
+    const ofAdded = band.filter((w) => added.some((name) => w.message.includes(name)));
+    // The bank's branches sit below the Sub board's tight band too (so the count must leave them out) …
+    expect(ofAdded.length).toBeGreaterThan(0);
+    // … and the count is the board's own circuits' warnings only, never more than its four branches.
+    expect(sub.loadsOutsideVoltageBand.after).toBe(band.length - ofAdded.length);
+    expect(sub.loadsOutsideVoltageBand.before).toBeGreaterThan(0);
+    expect(sub.loadsOutsideVoltageBand.after).toBeLessThanOrEqual(4);
+  });
+});
+

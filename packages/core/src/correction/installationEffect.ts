@@ -13,6 +13,7 @@ import { installationOf } from '../network/installationModel.js';
 import { addCorrectionEquipment, type EquipmentGroup } from './equipment.js';
 import type { BeforeAfter, PfBeforeAfter } from './correctionResult.js';
 import { beforeAfter, pfBeforeAfter } from './_internal/branchReadings.js';
+import { judgeVoltage } from '../board/conventions/voltageLimits.js';
 
 /** One line at a board's incomer, before and after. */
 export interface IncomerLineEffect {
@@ -38,7 +39,7 @@ export interface BoardEffect {
   readonly lines: readonly IncomerLineEffect[];
   readonly lowestVoltagePercent: BeforeAfter;
   readonly highestVoltagePercent: BeforeAfter;
-  /** Load branches outside the board's voltage band (its over- and undervoltage warnings). */
+  /** Branches of the board's own circuits outside its voltage band, as its over- and undervoltage warnings count them (the added equipment not counted). */
   readonly loadsOutsideVoltageBand: BeforeAfter;
   readonly neutralCurrentA: BeforeAfter | null;
   /** Vector PF |ΣP|/|ΣS| of the lines at the incomer (everything the feeder carries). */
@@ -85,8 +86,15 @@ export interface InstallationEffect {
   readonly after: InstallationResult;
 }
 
-const VOLTAGE_BAND_CODES = new Set(['overvoltage', 'undervoltage']);
-const outsideBand = (r: BoardResult) => r.warnings.filter((w) => VOLTAGE_BAND_CODES.has(w.code)).length;
+/**
+ * The board's own circuits (branch by branch, as its voltage warnings count them) outside its voltage
+ * band: the added equipment is not one of them, or a bank on an already low board would read as
+ * making more loads low.
+ */
+const outsideBand = (r: BoardResult) =>
+  r.loads
+    .filter((l) => l.origin === 'board' && l.energised)
+    .reduce((n, l) => n + l.branches.filter((br) => judgeVoltage(r.voltageCheck.limits, br.voltagePercent) !== 'within').length, 0);
 const pair = (b: number | null | undefined, a: number | null | undefined): BeforeAfter | null =>
   b === null || b === undefined || a === null || a === undefined ? null : beforeAfter(b, a);
 
