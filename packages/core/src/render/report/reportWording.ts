@@ -3,7 +3,7 @@
 export const MODEL_ASSUMPTIONS: readonly string[] = [
   'Steady state at the fundamental frequency: voltages and currents are sinusoidal phasors (rms values).',
   'Every circuit is modelled as entered: its rating at nominal voltage and its voltage dependence (constant power, current, impedance or a ZIP mix); a constant-power or constant-current load below 0.7 of its nominal voltage is held at the impedance it has there.',
-  'The source is three (or two) EMFs behind the source impedance; a transformer rating gives that impedance referred to the board voltage. Feeder conductors are series impedances; mutual coupling between conductors and conductor temperature are not modelled.',
+  'The source is three (or two) EMFs behind the source impedance; a transformer rating gives that impedance referred to the board voltage. Feeder conductors are series impedances, each at the resistance of its stated operating temperature (a conductor from the cable library is corrected from its 20 °C table value); mutual coupling between conductors, and the temperature the load current itself would give, are not modelled.',
   'Line currents flow from the source into the board and the neutral current back to the source, so the three line currents add up to the neutral current. Phase angles are referred to the phase-A source voltage.',
   'Powers follow the load convention: kW above zero is consumed, kvar above zero is lagging (inductive).',
 ];
