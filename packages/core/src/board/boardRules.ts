@@ -216,7 +216,7 @@ function poleIssues(load: LoadBaseSpec, path: string): InputIssue[] {
   const needed = linesOfConnection(load.connection);
   if (load.poles === needed) return [];
   const kind = needed === 1 ? 'a line-to-neutral load' : needed === 2 ? 'a line-to-line load' : 'a three-phase load';
-  return [inputIssue('pole_count', `${path}.poles`, `${needed} pole${needed > 1 ? 's' : ''} for ${kind} (${load.connection}): one per line conductor it uses`, load.poles)];
+  return [inputIssue('pole_count', `${path}.poles`, `${needed} pole${needed > 1 ? 's' : ''} for ${kind} (${load.connection}): one per line conductor it uses; a device that also switches the neutral (1P+N, 3P+N) is given by its line poles (${needed})`, load.poles)];
 }
 
 /** The connections a load may use on each system. */
