@@ -39,6 +39,10 @@ describe('reading voltage notation', () => {
     ['400/250', undefined, /neither|√3 \(1\.732, a star system\) or 2/],
     ['four hundred', undefined, /number pair like "208Y\/120"/],
     ['400/0', undefined, /above 0 V|number pair/],
+    // Low voltage only, as { lineToLine } is (IEC 60038: up to 1,000 V a.c.).
+    ['12470Y/7200', undefined, /from 10 to 1,000 V.*12470\/7200 is outside/],
+    ['34500Y/19920', undefined, /from 10 to 1,000 V/],
+    ['1/0.577', undefined, /from 10 to 1,000 V/],
   ];
   it.each(bad)('refuses %s (system %s) and says what is accepted', (text, system, message) => {
     const read = readVoltageNotation(text, system as never);
@@ -51,7 +55,8 @@ describe('reading voltage notation', () => {
     expect(writeVoltageNotation('three-phase-4wire', 230, 400, 'iec')).toBe('230/400 V');
     expect(writeVoltageNotation('split-phase', 120, 240, 'north-america')).toBe('120/240 V');
     fc.assert(
-      fc.property(fc.integer({ min: 50, max: 600 }), fc.boolean(), fc.constantFrom('iec', 'north-america'), (ln, split, region) => {
+      // Line-to-neutral voltages whose line-to-line voltage stays within the low-voltage range (1,000 V).
+      fc.property(fc.integer({ min: 50, max: 500 }), fc.boolean(), fc.constantFrom('iec', 'north-america'), (ln, split, region) => {
         const ll = split ? 2 * ln : Math.round(ln * Math.sqrt(3) * 10) / 10;
         const system = split ? 'split-phase' : 'three-phase-4wire';
         const text = writeVoltageNotation(system, ln, ll, region);
@@ -88,6 +93,12 @@ describe('notation in a board file', () => {
     ['a ratio that is neither', '400/250', 'three-phase-4wire', 'bad_voltage_notation', /1\.600/],
     ['text that is no notation', '400 volts', 'three-phase-4wire', 'bad_voltage_notation', /"208Y\/120"/],
   ];
+  it('an out-of-range notation with the system left out is the one problem reported (not also a missing system)', () => {
+    const result = validateBoard(board('12470Y/7200', undefined));
+    expect(result.ok).toBe(false);
+    if (result.ok) return;
+    expect(result.issues.map((i) => i.path)).toEqual(['supply.voltage']);
+  });
   it.each(invalid)('%s: code and path', (_, voltage, system, code, message) => {
     const result = validateBoard(board(voltage, system));
     expect(result.ok).toBe(false);

@@ -11,7 +11,7 @@
  */
 import { inputIssue, type InputIssue } from '../../errors.js';
 import { readPhaseTerm, type PhaseNaming } from './phaseNames.js';
-import { readVoltageNotation, type VoltageNotation } from './voltageNotation.js';
+import { readVoltageNotation, systemOfNotationRatio, type VoltageNotation } from './voltageNotation.js';
 
 export interface TradeSpellings {
   /** The naming the file's phase terms use; null when it names no phase. */
@@ -94,6 +94,11 @@ function spellSupply(s: Speller, supply: Obj, notationOut: { value: VoltageNotat
   if (read.ok) {
     supply.system = read.notation.system;
     notationOut.value = read.notation;
+  } else {
+    // The notation is wrong (out of range, say) but its ratio still names the system: the schema then
+    // reports the notation alone, not also a missing system.
+    const system = systemOfNotationRatio(v);
+    if (system) supply.system = system;
   }
 }
 

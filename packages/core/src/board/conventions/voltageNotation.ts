@@ -9,6 +9,7 @@
  * 415/240 is 1.729, 400/230 is 1.739), an impossible pair (400/200 on a star) is not.
  */
 import type { SystemKind } from '../boardSchema.js';
+import { PHYSICAL_RANGES } from '../boardRanges.js';
 
 /** Relative tolerance on the ratio of the two figures: rounded nominal values stay within 1 %; 2 % leaves room (common practice, no source). */
 export const NOTATION_RATIO_TOLERANCE = 0.02;
@@ -47,6 +48,9 @@ export function readVoltageNotation(text: string, system?: SystemKind): Notation
   const high = Math.max(first, second);
   const low = Math.min(first, second);
   if (low <= 0) return { ok: false, problem: 'two voltages above 0 V' };
+  // The range { lineToLine } and { lineToNeutral } are held to: trivar models low-voltage installations.
+  const { min, max } = PHYSICAL_RANGES.voltage;
+  if (low < min || high > max) return { ok: false, problem: `voltages from ${min} to ${max.toLocaleString('en-US')} V, a low-voltage supply (IEC 60038): ${high}/${low} is outside` };
   const ratio = high / low;
   const pair = `${high}/${low} is ${ratio.toFixed(3)}`;
   if (star && first < second) return { ok: false, problem: 'the line-to-line voltage first in the Y form (e.g. "208Y/120")' };
@@ -64,6 +68,20 @@ export function readVoltageNotation(text: string, system?: SystemKind): Notation
     return { ok: true, notation: { system: 'split-phase', lineToLineV: high, lineToNeutralV: low, text: trimmed, star: false } };
   }
   return { ok: false, problem: `a ratio of √3 (1.732, a star system) or 2 (split phase) within ±${NOTATION_RATIO_TOLERANCE * 100} %: ${pair}` };
+}
+
+/**
+ * The system a notation's ratio names (√3: three-phase 4-wire, 2: split phase), whether or not the
+ * notation is otherwise valid; null when it names none. Lets a file that leaves `system` out be told
+ * only what is wrong with its notation, not also that `system` is missing.
+ */
+export function systemOfNotationRatio(text: string): SystemKind | null {
+  const m = FORM.exec(text);
+  if (!m) return null;
+  const high = Math.max(Number(m[1]), Number(m[3]));
+  const low = Math.min(Number(m[1]), Number(m[3]));
+  if (!(low > 0)) return null;
+  return near(high / low, Math.sqrt(3)) ? 'three-phase-4wire' : near(high / low, 2) ? 'split-phase' : null;
 }
 
 /**
