@@ -152,7 +152,7 @@ export function renderInstallationReport(r: InstallationResult, options: Install
     section('Boards') + boardTable(r) + `\n${note("own: this board's circuits; fed: what its feeder delivers, boards beyond it included.")}`,
     section('Feeders') +
       feederTable(r) +
-      `\n${note('drop: |V| at the sending end minus |V| at the board, the phase that changes most (negative: a rise), % of nominal; for the service feeder, from the source EMF.')}` +
+      `\n${note('drop: |V| at the sending end minus |V| at the board, the phase that changes most (negative: a rise), % of nominal; for the service feeder, from the source EMF. loss: conductor losses, the service feeder\'s with the source windings.')}` +
       cableList(r),
     section('Installation') +
       [

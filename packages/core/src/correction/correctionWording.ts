@@ -30,7 +30,7 @@ const pfText = (pf: number | null, sense: PowerFactorSense) => (pf === null ? 'n
 
 export const TARGET_STATEMENTS: Record<TargetDefinition, string> = {
   'per-line':
-    'displacement power factor of every line at the board, P/|S| with S = V·I* per line (voltage to the neutral bar on a 4-wire board, to the virtual neutral on a 3-wire board)',
+    'displacement power factor of every line at the board, P/|S| with S = V·I* per line (voltage to the neutral bar where the board has a neutral, to the virtual neutral on a three-phase 3-wire board)',
   effective: 'IEEE Std 1459 effective power factor of the board, P/Se with Se = 3·Ve·Ie (Buchholz–Goodhue)',
   vector: 'vector power factor of the board, P/|ΣS| over the lines (what a kWh/kvarh meter averages to)',
   arithmetic: 'arithmetic power factor of the board, P/Σ|S| over the lines',
