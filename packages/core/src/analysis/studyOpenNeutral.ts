@@ -65,7 +65,8 @@ function fedBoardReadings(board: Board, solution: NetworkSolution, threshold: nu
         if (b.to !== 'N' && b.from !== 'N') continue;
         const from = at(cb.from);
         const to = at(cb.to);
-        if (!from || !to || abs(b.sNominal) === 0) continue;
+        // Energised as the board's own circuits are (both ends live), so the two lists follow one rule.
+        if (!from || !to) continue;
         out.push(loadReading(load.name, b, sub(from, to), threshold, sb.name));
       }
   }
@@ -164,7 +165,9 @@ export function studyOpenNeutral(board: Board, options?: SolveOptions): OpenNeut
   });
   if (!board.hasNeutral) return notApplicable('a three-phase-3wire board has no neutral conductor to lose');
   if (board.system === 'single-phase') return notApplicable('on a single-phase 2-wire board a broken neutral simply de-energises every load');
-  const fedLoads = board.installation ? fedBoards(board).flatMap((d) => installationOf(board).installation.subBoards[d - 1]!.loads) : [];
+  const fed = fedBoards(board);
+  const subBoards = fed.length ? installationOf(board).installation.subBoards : [];
+  const fedLoads = fed.flatMap((d) => subBoards[d - 1]!.loads);
   if (!hasNeutralLoads(board.loads) && !hasNeutralLoads(fedLoads))
     return notApplicable('no line-to-neutral loads on this board or the boards it feeds, so a broken neutral changes nothing');
   const threshold = options?.lowVoltageThreshold ?? 0.7;
