@@ -23,14 +23,20 @@ export interface IdealOutcome {
 
 const RESIDUAL_TOLERANCE = 1e-12;
 
-function newton(probe: BoardProbe, start: readonly number[], bases: ResidualBases, maxIterations: number, step: number) {
+/**
+ * @param finalJacobian whether the Jacobian at the state reached is wanted (the first run's, for the
+ *   null direction); otherwise none is formed there, since no step is taken from it (n column solves saved)
+ */
+function newton(probe: BoardProbe, start: readonly number[], bases: ResidualBases, maxIterations: number, step: number, finalJacobian: boolean) {
   let state = probe.at(start);
   let iterations = 0;
   let r = compensatorResidual(state, bases);
   let jacobian: number[][] = [];
   while (iterations < maxIterations) {
+    const settled = maxAbs(r) < RESIDUAL_TOLERANCE && iterations > 0;
+    if (settled && !finalJacobian) break;
     jacobian = probeJacobian(probe, state, (s) => compensatorResidual(s, bases), step);
-    if (maxAbs(r) < RESIDUAL_TOLERANCE && iterations > 0) break;
+    if (settled) break;
     iterations++;
     const jjt = multiply(jacobian, transpose(jacobian));
     const y = solveLinear(jjt, r);
@@ -85,13 +91,13 @@ function leastReactorShift(x: readonly number[], nu: readonly number[]): number 
 export function solveIdealCompensator(probe: BoardProbe, bases: ResidualBases, maxIterations: number): IdealOutcome {
   const n = probe.slots.length;
   const step = 1e-4 * bases.powerKVA;
-  let run = newton(probe, new Array<number>(n).fill(0), bases, maxIterations, step);
+  let run = newton(probe, new Array<number>(n).fill(0), bases, maxIterations, step, true);
   let iterations = run.iterations;
   if (run.jacobian.length < n) {
     const nu = nullDirection(run.jacobian);
     if (nu) {
       const q = leastReactorShift(run.state.kvar, nu);
-      run = newton(probe, run.state.kvar.map((x, i) => x + q * nu[i]!), bases, maxIterations, step);
+      run = newton(probe, run.state.kvar.map((x, i) => x + q * nu[i]!), bases, maxIterations, step, false);
       iterations += run.iterations;
     }
   }
