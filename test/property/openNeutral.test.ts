@@ -3,10 +3,28 @@
  * solver): whatever state it ends on — the open neutral, or the last state
  * before a collapse — obeys Kirchhoff's current law, Ohm's law on every element
  * and every load's voltage-dependence model, on random boards of every load model.
+ * The continuation's solver, its circuit built once (neutralFaultNewton.ts), is held to
+ * solveNetworkByNewton on each faulted board to the bit.
  */
+import { readFileSync } from 'node:fs';
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { type BoardSpec, followNeutralBreak, normaliseBoard, solveBoard, solveNetwork, solveNetworkByNewton } from '@trivar/core';
+import {
+  type Board,
+  type BoardSpec,
+  boardOfInstallation,
+  type ComplexValue,
+  followNeutralBreak,
+  normaliseBoard,
+  normaliseInstallation,
+  parseInstallation,
+  readBoardText,
+  solveBoard,
+  solveNetwork,
+  solveNetworkByNewton,
+  withNeutralFault,
+} from '@trivar/core';
+import { neutralFaultNewton } from '../../packages/core/src/network/neutralFaultNewton.js';
 import { cAbs, cScale, cSub } from '../support/complexMath.js';
 import { boardSpecArb } from './arbitraries/boardSpec.js';
 import { assertCurrentLawHolds, assertElementLawsHold, assertLoadModelsHold } from './laws.js';
@@ -84,5 +102,48 @@ describe('open-neutral continuation, regression', () => {
     expect(study.reachedFromIntact).toBe(true);
     // With the neutral open the A-N load has no return path: it sees no voltage.
     expect(study.loads[0]!.voltage).toBeLessThan(1e-6);
+  });
+});
+
+describe('neutral-fault Newton, circuit built once', () => {
+  /** solveNetworkByNewton on the faulted board, and the shared-circuit solver, from one start: the same bits. */
+  function assertSameAsRebuilt(board: Board, ohms: number | null, start: readonly (ComplexValue | null)[]) {
+    const options = { lowVoltageThreshold: 0.7, maxIterations: 40 };
+    const rebuilt = solveNetworkByNewton(withNeutralFault(board, ohms), start, options);
+    const shared = neutralFaultNewton(board).solve(ohms, start, options);
+    expect(shared.converged).toBe(rebuilt.converged);
+    if (!shared.converged || !rebuilt.converged) return;
+    expect(shared.voltages.length).toBe(rebuilt.solution.nodeVoltages.length);
+    shared.voltages.forEach((v, k) => {
+      const w = rebuilt.solution.nodeVoltages[k]!;
+      expect(v === null).toBe(w === null);
+      if (v && w) expect(Object.is(v.re, w.re) && Object.is(v.im, w.im)).toBe(true);
+    });
+    // The whole solution read from the shared solver's state is the one the rebuilt solve reads.
+    expect(neutralFaultNewton(board).read(ohms, shared, options)).toEqual(rebuilt.solution);
+  }
+
+  it('gives solveNetworkByNewton’s voltages on the faulted board to the bit (random boards, fault from 1 mΩ to open)', () => {
+    fc.assert(
+      fc.property(arb, fc.option(fc.double({ min: -3, max: 3, noNaN: true }), { nil: null }), (spec, decade) => {
+        const board = normaliseBoard(spec);
+        if (!board.hasNeutral) return;
+        const start = solveNetwork(withNeutralFault(board, 1e-3)).nodeVoltages;
+        assertSameAsRebuilt(board, decade === null ? null : 10 ** decade, start);
+      }),
+      { numRuns: 80 },
+    );
+  });
+
+  it('does so on the sub-boards of the shipped installations, whose neutral fault sits in their feeder', () => {
+    for (const file of ['maple-court-riser.yaml', 'tannery-lane-works.yaml']) {
+      const { installation } = normaliseInstallation(parseInstallation(readBoardText(readFileSync(`examples/${file}`, 'utf8'))));
+      for (let b = 0; b <= installation.subBoards.length; b++) {
+        const board = boardOfInstallation(installation, b);
+        if (!board.hasNeutral) continue;
+        const start = solveNetwork(withNeutralFault(board, 1e-3)).nodeVoltages;
+        for (const ohms of [0.05, 2, 40, null]) assertSameAsRebuilt(board, ohms, start);
+      }
+    }
   });
 });

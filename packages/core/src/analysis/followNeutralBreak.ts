@@ -11,10 +11,12 @@
  * or shows that the state it was in ceases to exist on the way (a fold: voltage
  * collapse of the heavier side), which is an answer in itself.
  */
-import { abs, add, complex, sub } from '../complex.js';
+import { abs, sub, type ComplexValue } from '../complex.js';
 import type { Board } from '../board/boardModel.js';
 import { solveNetwork, type NetworkSolution } from '../network/solveNetwork.js';
-import { solveNetworkByNewton } from '../network/solveNetworkByNewton.js';
+import { neutralFaultNewton, withNeutralFault } from '../network/neutralFaultNewton.js';
+
+export { withNeutralFault } from '../network/neutralFaultNewton.js';
 
 export interface FollowNeutralBreakOptions {
   /**
@@ -60,12 +62,6 @@ const ITERATIONS_PER_STEP = 6;
 /** Intermediate states need only be close enough to start the next step from; the open-neutral state is solved to full accuracy. */
 const STEP_TOLERANCE = 1e-7;
 
-/** The board with a fault resistance added in series with its neutral conductor (or the neutral open when `ohms` is null). */
-export function withNeutralFault(board: Board, ohms: number | null): Board {
-  if (ohms === null) return { ...board, neutralOpen: true };
-  return { ...board, neutralOpen: false, neutralImpedance: add(board.neutralImpedance, complex(ohms, 0)) };
-}
-
 /**
  * Impedance of the load the neutral serves at nominal voltage, ohm: the scale the fault resistance
  * is swept over. Only branches to the neutral bar count — a large line-to-line load beside a small
@@ -90,10 +86,10 @@ function lightestBranchImpedance(board: Board): number {
   return Number.isFinite(smallest) ? (board.nominalLineToNeutralV ** 2) / smallest : 0;
 }
 
-function largestMove(a: NetworkSolution, b: NetworkSolution, vBase: number): number {
+function largestMove(a: readonly (ComplexValue | null)[], b: readonly (ComplexValue | null)[], vBase: number): number {
   let largest = 0;
-  a.nodeVoltages.forEach((v, k) => {
-    const w = b.nodeVoltages[k];
+  a.forEach((v, k) => {
+    const w = b[k];
     if (v && w) largest = Math.max(largest, abs(sub(v, w)) / vBase);
   });
   return largest;
@@ -112,24 +108,30 @@ export function followNeutralBreak(board: Board, options: FollowNeutralBreakOpti
   const LAST_DECADE = Math.max(3, Math.log10(lightestBranchImpedance(board) / zScale) + DECADES_PAST_LIGHTEST);
   // The intact board (a negligible fault, so the neutral bar is a node of its own as in every later step).
   let decade = FIRST_DECADE;
-  let state = solveNetwork(withNeutralFault(board, zScale * 10 ** decade), { lowVoltageThreshold });
+  const intact = solveNetwork(withNeutralFault(board, zScale * 10 ** decade), { lowVoltageThreshold });
+  // Each step's whole solution is read only for the state returned: a step needs the voltages alone.
+  const newton = neutralFaultNewton(board);
+  let voltages = intact.nodeVoltages;
+  let settled: Extract<ReturnType<typeof newton.solve>, { converged: true }> | null = null;
+  const state = () => (settled ? newton.read(zScale * 10 ** decade, settled, stepNewton) : intact);
   let step: number = STEP.start;
   let steps = 0;
   while (decade < LAST_DECADE) {
     const next = Math.min(LAST_DECADE, decade + step);
-    const out = solveNetworkByNewton(withNeutralFault(board, zScale * 10 ** next), state.nodeVoltages, stepNewton);
-    if (out.converged && largestMove(out.solution, state, vBase) <= LARGEST_MOVE) {
+    const out = newton.solve(zScale * 10 ** next, voltages, stepNewton);
+    if (out.converged && largestMove(out.voltages, voltages, vBase) <= LARGEST_MOVE) {
       decade = next;
-      state = out.solution;
+      voltages = out.voltages;
+      settled = out;
       steps++;
       step = Math.min(STEP.largest, step * 1.5);
     } else {
       step /= 2;
-      if (step < STEP.floor) return { reachedOpen: false, lostAtOhms: zScale * 10 ** decade, state, stateAtOhms: zScale * 10 ** decade, steps };
+      if (step < STEP.floor) return { reachedOpen: false, lostAtOhms: zScale * 10 ** decade, state: state(), stateAtOhms: zScale * 10 ** decade, steps };
     }
   }
-  const open = solveNetworkByNewton(withNeutralFault(board, null), state.nodeVoltages, { lowVoltageThreshold });
-  if (open.converged && largestMove(open.solution, state, vBase) <= LARGEST_MOVE)
-    return { reachedOpen: true, lostAtOhms: null, state: open.solution, stateAtOhms: null, steps: steps + 1 };
-  return { reachedOpen: false, lostAtOhms: null, state, stateAtOhms: zScale * 10 ** decade, steps };
+  const open = newton.solve(null, voltages, { lowVoltageThreshold });
+  if (open.converged && largestMove(open.voltages, voltages, vBase) <= LARGEST_MOVE)
+    return { reachedOpen: true, lostAtOhms: null, state: newton.read(null, open, { lowVoltageThreshold }), stateAtOhms: null, steps: steps + 1 };
+  return { reachedOpen: false, lostAtOhms: null, state: state(), stateAtOhms: zScale * 10 ** decade, steps };
 }

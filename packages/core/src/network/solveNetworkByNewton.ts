@@ -16,7 +16,7 @@
 import { abs, add, conj, mul, scale, sub, ZERO, type ComplexValue } from '../complex.js';
 import type { Board, LoadBranch } from '../board/boardModel.js';
 import { REFERENCE, type Circuit } from './circuit.js';
-import { buildInstallationCircuit } from './installationCircuit.js';
+import { buildInstallationCircuit, type InstallationCircuit } from './installationCircuit.js';
 import { installationOf } from './installationModel.js';
 import { readInstallationSolution, type NetworkSolution } from './solveNetwork.js';
 
@@ -138,6 +138,190 @@ function solveReal(a: Float64Array, b: Float64Array, n: number): Float64Array | 
   return x.every(Number.isFinite) ? x : null;
 }
 
+/** Newton's settings with their defaults filled in. */
+export interface NewtonSettings {
+  readonly tolerance: number;
+  readonly maxIterations: number;
+  readonly threshold: number;
+  readonly maxUpdate: number;
+}
+
+export function newtonSettings(options: NewtonOptions): NewtonSettings {
+  return { tolerance: options.tolerance ?? 1e-10, maxIterations: options.maxIterations ?? 40, threshold: options.lowVoltageThreshold ?? 0.7, maxUpdate: options.maxUpdate ?? 0.25 };
+}
+
+/** Where Newton's iteration ended: the node voltages it settled on, or the iteration it gave up at. */
+export type NewtonVoltages =
+  | { readonly converged: true; readonly voltages: (ComplexValue | null)[]; readonly iterations: number; readonly lastChange: number }
+  | { readonly converged: false; readonly iterations: number };
+
+/**
+ * One element's admittance in place of the circuit's (null: the element left out), so that circuits
+ * differing only there share one build: the fault in series with a neutral (neutralFaultNewton.ts).
+ */
+export interface ReplacedElement {
+  readonly element: number;
+  readonly admittance: ComplexValue | null;
+}
+
+/**
+ * Newton's iteration on a built circuit (see `solveNetworkByNewton`), from `start`, to node voltages.
+ * The voltages, the Jacobian and the residual live on typed arrays, and each stamp is written out
+ * with complex.ts's arithmetic in its order (`branchCurrent` for the load branches): the same bits as
+ * the object-based loop this replaced, without a heap object per product. A neutral-break study
+ * runs this some 300 times per board, each `trivar solve` of a board with line-to-neutral loads.
+ */
+export function newtonVoltages(circuit: Circuit, vBase: number, start: readonly (ComplexValue | null)[], settings: NewtonSettings, replaced: ReplacedElement | null = null): NewtonVoltages {
+  const { tolerance, maxIterations, threshold, maxUpdate } = settings;
+  if (start.length !== circuit.nodeNames.length) throw new RangeError(`solveNetworkByNewton: the start has ${start.length} node voltages, the board's circuit ${circuit.nodeNames.length}`);
+  const nodes = start.length;
+  const vr = new Float64Array(nodes);
+  const vi = new Float64Array(nodes);
+  const live = new Uint8Array(nodes);
+  start.forEach((v, node) => {
+    if (!v) return;
+    vr[node] = v.re;
+    vi[node] = v.im;
+    live[node] = 1;
+  });
+  const fixed = new Uint8Array(nodes);
+  for (const src of circuit.sources) {
+    if (src.admittance) continue;
+    fixed[src.plus] = 1;
+    const minusLive = src.minus !== REFERENCE && live[src.minus] === 1;
+    // add(ZERO or V(minus), emf)
+    vr[src.plus] = (minusLive ? vr[src.minus]! : 0) + src.emf.re;
+    vi[src.plus] = (minusLive ? vi[src.minus]! : 0) + src.emf.im;
+    live[src.plus] = 1;
+  }
+  const index = new Int32Array(nodes).fill(-1);
+  let n = 0;
+  for (let node = 0; node < nodes; node++) if (live[node] && !fixed[node]) index[node] = n++;
+  const isLive = (node: number) => node === REFERENCE || live[node] === 1;
+  // A dead node reads as zero, as `voltages[node] ?? ZERO` did.
+  const re = (node: number) => (node === REFERENCE ? 0 : vr[node]!);
+  const im = (node: number) => (node === REFERENCE ? 0 : vi[node]!);
+  const slot = (node: number) => (node === REFERENCE ? -1 : index[node]!);
+  const size = 2 * n;
+  const jac = new Float64Array(size * size);
+  const residual = new Float64Array(size);
+  // Current (cr, ci) leaves p and enters q; its derivatives (dx, dy) are with respect to V(p) − V(q).
+  const stamp = (p: number, q: number, cr: number, ci: number, dxr: number, dxi: number, dyr: number, dyi: number) => {
+    const rp = slot(p);
+    const rq = slot(q);
+    for (let side = 0; side < 2; side++) {
+      const row = side === 0 ? rp : rq;
+      if (row < 0) continue;
+      const sign = side === 0 ? 1 : -1;
+      residual[2 * row]! += sign * cr;
+      residual[2 * row + 1]! += sign * ci;
+      for (let other = 0; other < 2; other++) {
+        const col = other === 0 ? rp : rq;
+        if (col < 0) continue;
+        const k = other === 0 ? sign : -sign;
+        const at = 2 * row * size + 2 * col;
+        jac[at]! += k * dxr;
+        jac[at + size]! += k * dxi;
+        jac[at + 1]! += k * dyr;
+        jac[at + size + 1]! += k * dyi;
+      }
+    }
+  };
+  // mul(y, d) with d = V(p) − V(q) (− emf for a source); dx = y, dy = j·y.
+  const stampLinear = (p: number, q: number, yr: number, yi: number, dr: number, di: number) => stamp(p, q, yr * dr - yi * di, yr * di + yi * dr, yr, yi, -yi, yr);
+  const load = new Float64Array(BRANCH_STAMP);
+  for (let iteration = 1; iteration <= maxIterations; iteration++) {
+    jac.fill(0);
+    residual.fill(0);
+    const elements = circuit.elements;
+    for (let k = 0; k < elements.length; k++) {
+      const e = elements[k]!;
+      const y = replaced !== null && k === replaced.element ? replaced.admittance : e.admittance;
+      if (y !== null && isLive(e.from) && isLive(e.to)) stampLinear(e.from, e.to, y.re, y.im, re(e.from) - re(e.to), im(e.from) - im(e.to));
+    }
+    // A source behind an admittance draws y·(V+ − V− − E) out of its plus terminal.
+    for (const src of circuit.sources) {
+      if (!src.admittance || !isLive(src.plus) || !isLive(src.minus)) continue;
+      const y = src.admittance;
+      stampLinear(src.plus, src.minus, y.re, y.im, re(src.plus) - re(src.minus) - src.emf.re, im(src.plus) - im(src.minus) - src.emf.im);
+    }
+    for (const b of circuit.branches) {
+      if (abs(b.sNominal) === 0 || !isLive(b.from) || !isLive(b.to)) continue;
+      branchStamp(b, re(b.from) - re(b.to), im(b.from) - im(b.to), threshold, load);
+      stamp(b.from, b.to, load[0]!, load[1]!, load[2]!, load[3]!, load[4]!, load[5]!);
+    }
+    for (let k = 0; k < size; k++) residual[k] = -residual[k]!;
+    const step = solveReal(jac, residual, size);
+    if (!step) return { converged: false, iterations: iteration };
+    let largest = 0;
+    for (let k = 0; k < n; k++) largest = Math.max(largest, Math.hypot(step[2 * k]!, step[2 * k + 1]!) / vBase);
+    const shorten = largest > maxUpdate ? maxUpdate / largest : 1;
+    for (let node = 0; node < nodes; node++) {
+      const k = index[node]!;
+      if (k < 0) continue;
+      // add(v, scale(step, shorten))
+      vr[node] = vr[node]! + step[2 * k]! * shorten;
+      vi[node] = vi[node]! + step[2 * k + 1]! * shorten;
+    }
+    if (largest <= tolerance) {
+      const voltages = Array.from({ length: nodes }, (_, node): ComplexValue | null => (live[node] ? { re: vr[node]!, im: vi[node]! } : null));
+      return { converged: true, voltages, iterations: iteration, lastChange: largest };
+    }
+  }
+  return { converged: false, iterations: maxIterations };
+}
+
+/** Entries `branchStamp` writes: current (re, im), ∂I/∂x (re, im), ∂I/∂y (re, im). */
+const BRANCH_STAMP = 6;
+
+/** `branchCurrent`'s current and derivatives into `out`, in its arithmetic (see there), at branch voltage (vre, vim). */
+function branchStamp(branch: Pick<LoadBranch, 'sNominal' | 'vNominal' | 'zip'>, vre: number, vim: number, threshold: number, out: Float64Array): void {
+  const v0 = branch.vNominal;
+  const m = Math.hypot(vre, vim);
+  const held = m <= threshold * v0;
+  const mc = held ? threshold * v0 : m;
+  const { z, i, p } = branch.zip;
+  const f = z + (i * v0) / mc + (p * v0 * v0) / (mc * mc);
+  const df = held || m === 0 ? 0 : (-i * v0) / (m * m) - (2 * p * v0 * v0) / (m * m * m);
+  const k0 = 1 / (v0 * v0);
+  const y0r = branch.sNominal.re * k0;
+  const y0i = -branch.sNominal.im * k0;
+  const ar = y0r * f;
+  const ai = y0i * f;
+  out[0] = ar * vre - ai * vim;
+  out[1] = ar * vim + ai * vre;
+  const sx = m === 0 ? 0 : (df * vre) / m;
+  const wxr = f + vre * sx;
+  const wxi = 0 + vim * sx;
+  out[2] = y0r * wxr - y0i * wxi;
+  out[3] = y0r * wxi + y0i * wxr;
+  const sy = m === 0 ? 0 : (df * vim) / m;
+  const wyr = 0 + vre * sy;
+  const wyi = f + vim * sy;
+  out[4] = y0r * wyr - y0i * wyi;
+  out[5] = y0r * wyi + y0i * wyr;
+}
+
+/** The board's solution at node voltages Newton settled on: branch admittances and source currents at those voltages, read as `solveNetwork` reads its own. */
+export function newtonSolution(
+  board: Board,
+  settled: { readonly voltages: readonly (ComplexValue | null)[]; readonly iterations: number; readonly lastChange: number },
+  threshold: number,
+  built?: InstallationCircuit,
+): NetworkSolution {
+  const { installation, boardIndex } = installationOf(board);
+  const layout = built ?? buildInstallationCircuit(installation);
+  const circuit = layout.circuit;
+  const voltages = settled.voltages;
+  const at = (node: number) => (node === REFERENCE ? ZERO : (voltages[node] ?? ZERO));
+  const live = (node: number) => node === REFERENCE || voltages[node] !== null;
+  const admittances = circuit.branches.map((b) =>
+    abs(b.sNominal) === 0 || !live(b.from) || !live(b.to) ? ZERO : branchCurrent(b, sub(at(b.from), at(b.to)), threshold).admittance,
+  );
+  const state = { nodeVoltages: voltages, admittances, sourceCurrents: sourceCurrentsAt(circuit, voltages, admittances), iterations: settled.iterations, lastChange: settled.lastChange, lowVoltageThreshold: threshold };
+  return { ...readInstallationSolution(installation, layout, state).boards[boardIndex]!, board };
+}
+
 /**
  * Solves `board` by Newton's method from `start` (node voltages in the node
  * order of the board's circuit, null for a dead node — e.g. a
@@ -146,88 +330,8 @@ function solveReal(a: Float64Array, b: Float64Array, n: number): Float64Array | 
  * near its start is an answer for the callers (a fold, where a state ceases to exist).
  */
 export function solveNetworkByNewton(board: Board, start: readonly (ComplexValue | null)[], options: NewtonOptions = {}): NewtonOutcome {
-  const tolerance = options.tolerance ?? 1e-10;
-  const maxIterations = options.maxIterations ?? 40;
-  const threshold = options.lowVoltageThreshold ?? 0.7;
-  const maxUpdate = options.maxUpdate ?? 0.25;
-  const { installation, boardIndex } = installationOf(board);
-  const layout = buildInstallationCircuit(installation);
-  const circuit = layout.circuit;
-  if (start.length !== circuit.nodeNames.length) throw new RangeError(`solveNetworkByNewton: the start has ${start.length} node voltages, the board's circuit ${circuit.nodeNames.length}`);
-  const vBase = board.nominalLineToNeutralV;
-  const voltages = start.map((v) => v);
-  const fixed = new Set<number>();
-  for (const src of circuit.sources) {
-    if (src.admittance) continue;
-    fixed.add(src.plus);
-    voltages[src.plus] = add(src.minus === REFERENCE ? ZERO : (voltages[src.minus] ?? ZERO), src.emf);
-  }
-  const index = new Array<number>(voltages.length).fill(-1);
-  let n = 0;
-  voltages.forEach((v, node) => {
-    if (v && !fixed.has(node)) index[node] = n++;
-  });
-  const at = (node: number) => (node === REFERENCE ? ZERO : (voltages[node] ?? ZERO));
-  const live = (node: number) => node === REFERENCE || voltages[node] !== null;
-  const size = 2 * n;
-  // Rows/columns of a node (−1: reference or fixed EMF terminal, not an unknown).
-  const slot = (node: number) => (node === REFERENCE ? -1 : index[node]!);
-  for (let iteration = 1; iteration <= maxIterations; iteration++) {
-    const jac = new Float64Array(size * size);
-    const residual = new Float64Array(size);
-    // Current `current` leaves p and enters q; its derivatives are with respect to V(p) − V(q).
-    const stamp = (p: number, q: number, current: ComplexValue, dx: ComplexValue, dy: ComplexValue) => {
-      const rp = slot(p);
-      const rq = slot(q);
-      for (let side = 0; side < 2; side++) {
-        const row = side === 0 ? rp : rq;
-        if (row < 0) continue;
-        const sign = side === 0 ? 1 : -1;
-        residual[2 * row]! += sign * current.re;
-        residual[2 * row + 1]! += sign * current.im;
-        for (let other = 0; other < 2; other++) {
-          const col = other === 0 ? rp : rq;
-          if (col < 0) continue;
-          const k = other === 0 ? sign : -sign;
-          const at = 2 * row * size + 2 * col;
-          jac[at]! += k * dx.re;
-          jac[at + size]! += k * dx.im;
-          jac[at + 1]! += k * dy.re;
-          jac[at + size + 1]! += k * dy.im;
-        }
-      }
-    };
-    const stampLinear = (p: number, q: number, y: ComplexValue) =>
-      stamp(p, q, mul(y, sub(at(p), at(q))), y, { re: -y.im, im: y.re });
-    for (const e of circuit.elements) if (live(e.from) && live(e.to)) stampLinear(e.from, e.to, e.admittance);
-    // A source behind an admittance draws y·(V+ − V− − E) out of its plus terminal.
-    for (const src of circuit.sources) {
-      if (!src.admittance || !live(src.plus) || !live(src.minus)) continue;
-      const y = src.admittance;
-      stamp(src.plus, src.minus, mul(y, sub(sub(at(src.plus), at(src.minus)), src.emf)), y, { re: -y.im, im: y.re });
-    }
-    for (const b of circuit.branches) {
-      if (abs(b.sNominal) === 0 || !live(b.from) || !live(b.to)) continue;
-      const { current, dx, dy } = branchCurrent(b, sub(at(b.from), at(b.to)), threshold);
-      stamp(b.from, b.to, current, dx, dy);
-    }
-    for (let k = 0; k < size; k++) residual[k] = -residual[k]!;
-    const step = solveReal(jac, residual, size);
-    if (!step) return { converged: false, iterations: iteration };
-    let largest = 0;
-    for (let k = 0; k < n; k++) largest = Math.max(largest, Math.hypot(step[2 * k]!, step[2 * k + 1]!) / vBase);
-    const shorten = largest > maxUpdate ? maxUpdate / largest : 1;
-    voltages.forEach((v, node) => {
-      const k = index[node]!;
-      if (v && k >= 0) voltages[node] = add(v, scale({ re: step[2 * k]!, im: step[2 * k + 1]! }, shorten));
-    });
-    if (largest <= tolerance) {
-      const admittances = circuit.branches.map((b) =>
-        abs(b.sNominal) === 0 || !live(b.from) || !live(b.to) ? ZERO : branchCurrent(b, sub(at(b.from), at(b.to)), threshold).admittance,
-      );
-      const state = { nodeVoltages: voltages, admittances, sourceCurrents: sourceCurrentsAt(circuit, voltages, admittances), iterations: iteration, lastChange: largest, lowVoltageThreshold: threshold };
-      return { converged: true, solution: { ...readInstallationSolution(installation, layout, state).boards[boardIndex]!, board } };
-    }
-  }
-  return { converged: false, iterations: maxIterations };
+  const settings = newtonSettings(options);
+  const layout = buildInstallationCircuit(installationOf(board).installation);
+  const out = newtonVoltages(layout.circuit, board.nominalLineToNeutralV, start, settings);
+  return out.converged ? { converged: true, solution: newtonSolution(board, out, settings.threshold, layout) } : { converged: false, iterations: out.iterations };
 }
