@@ -21,7 +21,7 @@ import { parseOptions } from '../_internal/zodIssues.js';
 import { labellerOf } from '../board/conventions/phaseNames.js';
 import { createProbe, type ProbeState } from './_internal/boardProbe.js';
 import { branchSizings, lineComparisons } from './_internal/branchReadings.js';
-import { residualBasesFor, residualWeights } from './_internal/compensatorResidual.js';
+import { compensatorResidual, residualBasesFor, residualWeights } from './_internal/compensatorResidual.js';
 import { solveIdealCompensator } from './_internal/idealCompensator.js';
 import { solveCapacitorOnlyCompensator } from './_internal/capacitorOnlyCompensator.js';
 import { leaveOutNegligible } from './_internal/negligibleBranches.js';
@@ -164,7 +164,10 @@ export function sizeBalancingCompensator(board: Board, options?: CompensatorOpti
   if (!capOnly.converged) warn('not-converged', compensatorWording.notConverged('capacitor-only', capOnly.iterations));
   if (capOnly.leadingConstraintsDropped) warn('leading-bound-dropped', compensatorWording.leadingDropped);
 
-  const idealSolution = solution('ideal', idealBuilt.state, 0, ideal.converged);
+  // Exact (objective 0) as solved; with a negligible branch left out, the small residual it leaves is its objective.
+  const leftOut = idealBuilt.small.some((b) => b.leftOut);
+  const idealObjective = leftOut ? compensatorResidual(idealBuilt.state, bases).reduce((sum, r, k) => sum + weights[k]! * r * r, 0) : 0;
+  const idealSolution = solution('ideal', idealBuilt.state, idealObjective, ideal.converged && !leftOut);
   const capSolution = solution('capacitor-only', capOnly.state, capOnly.objective, Math.sqrt(capOnly.objective) < 1e-6);
   const balanceBefore = checkBalance(start.result, opts.balance);
   const balanceAfter = checkBalance(capOnly.state.result, opts.balance);
