@@ -54,6 +54,40 @@ describe('trivar correct (built binary)', () => {
     expect(r.stderr).toContain('--pf');
   });
 
+  it('options that conflict with each other are a usage error (exit 2) naming them, before any study runs', () => {
+    const both = runTrivar(['correct', coldStore, '--pf', '0.95', '--upper-pf', '0.9']);
+    expect(both.code).toBe(2);
+    expect(both.stdout).toBe('');
+    expect(both.stderr).toContain('(options given: --pf 0.95 --upper-pf 0.9)');
+    expect(both.stderr).toContain('--upper-pf: expected an upper bound at least the target (0.95) (received 0.9)');
+    expect(both.stderr.split('\n').filter((l) => l !== '')).toHaveLength(1);
+    const leading = runTrivar(['correct', coldStore, '--allow-leading', '--upper-pf', '0.97']);
+    expect(leading.code).toBe(2);
+    expect(leading.stderr).toContain('--upper-pf, with --allow-leading: expected either leading: allowed or an upper lagging bound');
+    // An installation: the same, on the board the equipment goes on.
+    const works = runTrivar(['correct', 'examples/tannery-lane-works.yaml', '--board', 'Offices', '--pf', '0.97', '--upper-pf', '0.96']);
+    expect(works.code).toBe(2);
+    // Without --pf the default target 0.95 would sit under 0.96: --pf is named as part of the conflict.
+    expect(works.stderr).toContain('--upper-pf, with --pf: expected an upper bound at least the target (0.97) (received 0.96)');
+  });
+
+  it("an option that the file's correction section or the board cannot take: exit 2, naming the option and the field it meets", () => {
+    // The quay-street file asks for pf 0.97 with an upper bound of 0.995; --pf 0.999 passes that bound.
+    const bound = runTrivar(['correct', 'examples/quay-street-flats.yaml', '--pf', '0.999']);
+    expect(bound.code).toBe(2);
+    expect(bound.stderr).toContain('correction.target.maxLaggingPf in the board file, with --pf: expected an upper bound at least the target (0.999) (received 0.995)');
+    // A split-phase board has no balancing compensator; its default target definition goes with it.
+    const cabin = runTrivar(['correct', 'examples/pine-hollow-cabin.yaml', '--arrangement', 'balancing-compensator']);
+    expect(cabin.code).toBe(2);
+    expect(cabin.stderr).toContain('--arrangement: expected star-bank or delta-bank on a split-phase board');
+    expect(cabin.stderr).toContain('target.definition (its default), with --arrangement:');
+    // A problem in the file's own section stays the file's (exit 3), even with options given.
+    const text = readFileSync(`${ROOT}${coldStore}`, 'utf8').replace('target: { pf: 0.95 }', 'target: { pf: 0.95, maxLaggingPf: 0.9 }');
+    const own = runTrivar(['correct', '-', '--pf', '0.93'], text);
+    expect(own.code).toBe(3);
+    expect(own.stderr).toContain('correction.target.maxLaggingPf');
+  });
+
   it('without an arrangement compares every arrangement side by side, recommends one and shows it in full (100 columns)', () => {
     const r = runTrivar(['correct', 'examples/corner-bakery.yaml']);
     expect(r.stderr).toBe('');

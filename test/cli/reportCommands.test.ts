@@ -99,6 +99,24 @@ describe('trivar report', () => {
     expect(readFileSync(join(dir, 'b.html'), 'utf8')).not.toContain('<section id="correction">');
   });
 
+  it('a correction section without an arrangement: every arrangement compared and the one trivar correct recommends, in full', () => {
+    // The print shop's file gives only the target, a light load and the controller: trivar correct compares.
+    const out = join(scratch(), 'shop.html');
+    const r = runTrivar(['report', 'examples/cedar-falls-print-shop.yaml', '-o', out]);
+    expect(r.stderr).toBe('');
+    expect(r.code).toBe(0);
+    const section = readFileSync(out, 'utf8').split('<section id="correction">')[1]!.split('</section>')[0]!;
+    type Outcome = { arrangement: string; report: { status: string; selection: { deliveredKvar: number } | null } | null };
+    const compared = JSON.parse(runTrivar(['correct', 'examples/cedar-falls-print-shop.yaml', '--json']).stdout) as { recommended: string; outcomes: Outcome[] };
+    const names: Record<string, string> = { 'star-bank': 'Star bank', 'delta-bank': 'Delta bank', 'balancing-compensator': 'Balancing compensator' };
+    for (const o of compared.outcomes) expect(section).toContain(`<td>${names[o.arrangement]}</td>`);
+    const chosen = compared.outcomes.find((o) => o.arrangement === compared.recommended)!.report!;
+    expect(section).toContain(`Recommended — ${names[compared.recommended]!.toLowerCase()}:`);
+    // The recommended arrangement in full: its summary and the units it builds.
+    expect(section).toContain(`${chosen.selection!.deliveredKvar.toFixed(1)} kvar delivered`);
+    expect(section).toContain('<dt>Outcome</dt>');
+  });
+
   it('includes the harmonic study when the board file has one, or leaves it out with --no-harmonics', () => {
     const dir = scratch();
     expect(runTrivar(['report', 'examples/mill-street-offices.yaml', '-o', join(dir, 'a.html')]).code).toBe(0);
@@ -366,6 +384,26 @@ describe('correction at a board of an installation', () => {
     // --no-correction leaves it out.
     expect(runTrivar(['report', file, '--no-correction', '-o', out]).code).toBe(0);
     expect(readFileSync(out, 'utf8')).not.toContain('<section id="correction');
+  });
+
+  it('a correction section naming a board and no arrangement: the arrangements compared there, the recommended one in full and its effect', () => {
+    const file = join(scratch(), 'tannery.yaml');
+    writeFileSync(file, `${readFileSync(join(ROOT, 'examples/tannery-lane-works.yaml'), 'utf8')}correction: { board: Offices }\n`);
+    const out = join(dirname(file), 'r.html');
+    const r = runTrivar(['report', file, '-o', out]);
+    expect(r.stderr).toBe('');
+    expect(r.code).toBe(0);
+    const html = readFileSync(out, 'utf8');
+    expect(html).toContain('<h2>Correction recommendation — Offices</h2>');
+    const compared = JSON.parse(runTrivar(['correct', file, '--json']).stdout) as { board: string; comparison: { recommended: string; outcomes: { arrangement: string; report: { selection: { deliveredKvar: number } | null } }[] }; effect: Effect };
+    expect(compared.board).toBe('Offices');
+    const correction = html.split('<section id="correction">')[1]!.split('</section>')[0]!;
+    expect(correction).toContain('Arrangements compared');
+    const chosen = compared.comparison.outcomes.find((o) => o.arrangement === compared.comparison.recommended)!.report;
+    expect(correction).toContain(`${chosen.selection!.deliveredKvar.toFixed(1)} kvar delivered`);
+    const effect = html.split('<section id="correction-effect">')[1]!.split('</section>')[0]!;
+    expect(effect).toContain('<td>Offices (equipment here)</td>');
+    expect(effect).toContain(`${compared.effect.supply.pf.before.toFixed(3)} → ${compared.effect.supply.pf.after.toFixed(3)}`);
   });
 
   it('trivar diagram --with-correction and --view triangles draw the equipment board, or the board --board names', () => {

@@ -93,7 +93,9 @@ describe('verdicts that agree with the figures', () => {
     const ideal = r.sizing.arrangement === 'balancing-compensator' ? r.sizing.ideal : null;
     // Q1 stays where the board had it (a hair from the unbalanced voltages), instead of being driven to P1·tan(acos 0.95).
     const q1Before = r.verification.before.powerFactor.positiveSequence!.kvar;
-    expectClose(ideal!.residual.positiveSequenceKvar!, q1Before, { rel: 1e-3, abs: 1e-6 }, 'Q1');
+    // The exact solution holds Q1 there; the branches it leaves out as negligible move Q1 by no more than their own kvar.
+    const leftOutKvar = r.sizing.arrangement === 'balancing-compensator' ? r.sizing.smallBranches.reduce((s, b) => s + (b.leftOut ? Math.abs(b.kvarAtNominalV) : 0), 0) : 0;
+    expectClose(ideal!.residual.positiveSequenceKvar!, q1Before, { rel: 1e-3, abs: 1e-6 + leftOutKvar }, 'Q1');
     expect(Math.abs(q1Before)).toBeLessThan(1e-3 * r.verification.before.totals.kVA);
     expect(ideal!.residual.positiveSequencePf!).toBeGreaterThan(0.99999);
     for (const l of r.idealVerification!.lines) expect(l.pf.after).toBeGreaterThan(0.9999);

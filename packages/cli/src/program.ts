@@ -135,7 +135,8 @@ Examples:
   trivar diagram examples/maple-court-riser.yaml --board "Floor 4" -o floor-4.svg`;
 
 const REPORT_EXAMPLES = `
-The report includes the correction study when the board file has a "correction:" section, and the harmonic
+The report includes the correction study when the board file has a "correction:" section (naming no
+arrangement: every arrangement compared and the one trivar correct recommends, in full), and the harmonic
 study when it has a "harmonics:" section or loads with a spectrum. On an installation file it describes the
 supply, the feeders and every board, with a one-line drawing, and (with harmonic data) the harmonic study of
 every board and bank.

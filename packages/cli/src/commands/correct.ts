@@ -5,43 +5,13 @@ import { writeResult } from '../writeResult.js';
 import { renderCorrectionReport } from '../format/correctionReport.js';
 import { renderComparisonReport } from '../format/comparisonReport.js';
 import { renderInstallationComparison, renderInstallationCorrection } from '../format/installationCorrectionReport.js';
+import { assertOptionsFit, studySpec, type CorrectStudyOptions } from './correctStudyOptions.js';
 
-export interface CorrectCommandOptions {
+export interface CorrectCommandOptions extends CorrectStudyOptions {
   readonly json?: boolean;
-  readonly arrangement?: string;
-  readonly pf?: number;
-  readonly definition?: string;
-  readonly allowLeading?: boolean;
-  readonly upperPf?: number;
-  readonly lightLoad?: number;
-  readonly outputs?: string;
-  readonly practice?: string;
-  readonly ct?: number;
   readonly maxInputMb?: number;
   /** Installation files: the board the equipment goes on (default: the main board). */
   readonly board?: string;
-  /** Where the target is measured: `origin` or a board the equipment's board is fed through. */
-  readonly measuredAt?: string;
-}
-
-/** The board file's `correction` section with the command-line options laid over it. */
-function studySpec(fromFile: Record<string, unknown> | undefined, o: CorrectCommandOptions): Record<string, unknown> {
-  const spec: Record<string, unknown> = { ...(fromFile ?? {}) };
-  const target: Record<string, unknown> = { ...((spec.target as Record<string, unknown> | undefined) ?? {}) };
-  if (o.arrangement !== undefined) spec.arrangement = o.arrangement;
-  if (o.pf !== undefined) target.pf = o.pf;
-  if (o.definition !== undefined) target.definition = o.definition;
-  if (o.allowLeading) target.leading = 'allowed';
-  if (o.upperPf !== undefined) target.maxLaggingPf = o.upperPf;
-  if (o.measuredAt !== undefined) target.measuredAt = o.measuredAt;
-  if (Object.keys(target).length) spec.target = target;
-  if (o.lightLoad !== undefined) spec.lightLoad = { ...((spec.lightLoad as object | undefined) ?? {}), fraction: o.lightLoad };
-  if (o.practice !== undefined) spec.practice = o.practice;
-  const controller: Record<string, unknown> = { ...((spec.controller as Record<string, unknown> | undefined) ?? {}) };
-  if (o.outputs !== undefined) controller.outputs = Number(o.outputs);
-  if (o.ct !== undefined) controller.ctPrimaryA = o.ct;
-  if (Object.keys(controller).length) spec.controller = controller;
-  return spec;
 }
 
 /** What `trivar correct` produced: one arrangement's report, or every arrangement compared. */
@@ -80,8 +50,10 @@ async function runCorrectInstallation(input: unknown, options: CorrectCommandOpt
   const boardName = options.board ?? fileBoard;
   const placement = boardName === undefined ? {} : { board: boardName };
   // Also checked before the study, so the error names the option.
-  const issues = meteringPointIssues(boardOfInstallation(installation, installationBoardIndex(installation, boardName)), options.measuredAt, '--measured-at');
+  const equipmentBoard = boardOfInstallation(installation, installationBoardIndex(installation, boardName));
+  const issues = meteringPointIssues(equipmentBoard, options.measuredAt, '--measured-at');
   if (issues.length) throw new InputError(issues, 'the options do not fit the installation');
+  assertOptionsFit(fromFile as Record<string, unknown>, options, equipmentBoard);
   try {
     if (study.arrangement === undefined) {
       const compared = compareInstallationCorrections(installation, study, placement);
@@ -110,13 +82,14 @@ export async function runCorrect(file: string, options: CorrectCommandOptions, i
   // one with a correction section and no other study with only that section's schema, which the study needs anyway.
   const spec = readWellFormedBoard(input) ?? readWellFormedCorrectionBoard(input) ?? (await import('./schemaChecks.js')).parseBoard(input);
   const study = studySpec(spec.correction as Record<string, unknown> | undefined, options);
+  // correctBoard and compareCorrections refuse a board whose supply has collapsed.
+  const board = normaliseBoard(spec);
   if (options.measuredAt !== undefined) {
-    const issues = meteringPointIssues(normaliseBoard(spec), options.measuredAt, '--measured-at');
+    const issues = meteringPointIssues(board, options.measuredAt, '--measured-at');
     if (issues.length) throw new InputError(issues, 'the options do not fit the file');
   }
+  assertOptionsFit(spec.correction as Record<string, unknown> | undefined, options, board);
   try {
-    // correctBoard and compareCorrections refuse a board whose supply has collapsed.
-    const board = normaliseBoard(spec);
     // Without an arrangement (file or option) every arrangement that fits the board is compared.
     if (study.arrangement === undefined) {
       if (boardHasHarmonicData(spec)) {

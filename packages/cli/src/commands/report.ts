@@ -5,6 +5,8 @@ import {
   buildBoardReport,
   buildInstallationReport,
   checkHandFigures,
+  compareCorrections,
+  compareInstallationCorrections,
   correctBoard,
   correctInstallation,
   InputError,
@@ -119,19 +121,44 @@ async function boardDocument(raw: unknown, figures: unknown, options: ReportComm
   const spec = parseBoard(raw);
   const board = normaliseBoard(spec);
   const result = solveBoardModel(board);
-  const correction = options.correction !== false && spec.correction?.arrangement ? correctBoard(board, spec.correction) : null;
+  const { correction, correctionComparison } = options.correction !== false && spec.correction ? boardCorrectionOf(board, spec.correction) : NO_CORRECTION;
   const wantsHarmonics = spec.harmonics !== undefined || spec.loads.some((l) => l.spectrum !== undefined);
   const harmonics = options.harmonics !== false && wantsHarmonics ? studyHarmonics(raw) : null;
   const studySections = options.profileData ? [await profileReportSection(spec, options, io, result.conventions.phaseNames)] : [];
   const handCheck = figures === null ? null : handCheckOf(board, figures, options.handFigures!);
-  return { doc: buildBoardReport({ spec, result, correction, harmonics, studySections, handCheck }), result };
+  return { doc: buildBoardReport({ spec, result, correction, correctionComparison, harmonics, studySections, handCheck }), result };
 }
 
-/** The installation file's correction study on the board it names (default the main board). */
+const NO_CORRECTION = { correction: null, correctionComparison: null } as const;
+
+/**
+ * The board file's correction study: the arrangement it names, or (none named) every arrangement
+ * compared and the recommended one in full, as `trivar correct` gives them.
+ */
+function boardCorrectionOf(board: Board, section: NonNullable<BoardSpec['correction']>) {
+  if (section.arrangement) return { correction: correctBoard(board, section), correctionComparison: null };
+  const comparison = compareCorrections(board, section);
+  const chosen = comparison.outcomes.find((o) => o.arrangement === comparison.recommended)?.report ?? null;
+  return { correction: chosen, correctionComparison: comparison };
+}
+
+/**
+ * The installation file's correction study on the board it names (default the main board): the
+ * arrangement it names, or (none named) every arrangement compared and the recommended one in full.
+ */
 function installationCorrectionOf(installation: Installation, section: NonNullable<InstallationSpec['correction']>) {
   const { board, ...study } = section;
-  const c = correctInstallation(installation, study, board === undefined ? {} : { board });
-  return { board: c.board, report: c.report, effect: c.effect };
+  const placement = board === undefined ? {} : { board };
+  if (study.arrangement) {
+    const c = correctInstallation(installation, study, placement);
+    return { correction: { board: c.board, report: c.report, effect: c.effect }, correctionComparison: null };
+  }
+  const c = compareInstallationCorrections(installation, study, placement);
+  const chosen = c.comparison.outcomes.find((o) => o.arrangement === c.comparison.recommended)?.report;
+  return {
+    correction: chosen && c.effect ? { board: c.board, report: chosen, effect: c.effect } : null,
+    correctionComparison: { board: c.board, comparison: c.comparison },
+  };
 }
 
 async function installationDocument(raw: unknown, figures: unknown, options: ReportCommandOptions, io: CliIo): Promise<Reported> {
@@ -141,11 +168,11 @@ async function installationDocument(raw: unknown, figures: unknown, options: Rep
   const spec = parseInstallation(raw);
   const { installation } = normaliseInstallation(spec);
   const result = solveInstallationModel(installation);
-  const correction = options.correction !== false && spec.correction?.arrangement ? installationCorrectionOf(installation, spec.correction) : null;
+  const { correction, correctionComparison } = options.correction !== false && spec.correction ? installationCorrectionOf(installation, spec.correction) : NO_CORRECTION;
   const wantsHarmonics = spec.harmonics !== undefined || spec.boards.some((b) => b.loads.some((l) => l.spectrum !== undefined));
   const harmonics = options.harmonics !== false && wantsHarmonics ? studyInstallationHarmonics(raw) : null;
   const studySections = options.profileData ? await installationProfileReportSections(spec, installation, options, io, result.boards[0]!.result.conventions.phaseNames) : [];
-  return { doc: buildInstallationReport({ spec, result, correction, harmonics, studySections }), result };
+  return { doc: buildInstallationReport({ spec, result, correction, correctionComparison, harmonics, studySections }), result };
 }
 
 export async function runReport(file: string, options: ReportCommandOptions, io: CliIo, footer: string): Promise<void> {

@@ -1,5 +1,5 @@
 /** CorrectionReport → the human-readable report of `trivar correct` (fits 100 columns). */
-import { labellerOf, meteringPointWords, type BankSelection, type BankStep, type BeforeAfter, type BranchSizing, type CompensatorSizing, type ControllerSettings, type CorrectionReport, type CorrectionVerification, type PhaseId, type PhaseLabeller } from '@trivar/core';
+import { CORRECTION_DEFAULTS, labellerOf, meteringPointWords, reactorChanges, smallBranchWords, type BankSelection, type BankStep, type BeforeAfter, type BranchSizing, type CompensatorSizing, type ControllerSettings, type CorrectionReport, type CorrectionVerification, type PhaseId, type PhaseLabeller } from '@trivar/core';
 import { fixed, renderTable, section } from './textTable.js';
 import { headerLines } from './solveReport.js';
 import { wrapText } from './wrapText.js';
@@ -254,6 +254,15 @@ function balanceLine(r: CorrectionReport): string[] {
   return [`balance as built: |I2|/|I1| ${fixed(b.negativeSequencePercent, 1)} % (target ≤ ${fixed(t.maxNegativeSequencePercent, 0)} %)${neutral} — ${b.met ? 'met' : 'NOT met'}`];
 }
 
+/** The exact solution's negligible branches: left out of the ideal solution above, or kept and why. */
+function smallBranchLines(c: CompensatorSizing, label: PhaseLabeller): string[] {
+  const percent = 100 * CORRECTION_DEFAULTS.negligibleBranchFraction;
+  return [true, false].flatMap((leftOut) => {
+    const these = c.smallBranches.filter((b) => b.leftOut === leftOut).map((b) => ({ ...b, branch: label(b.branch) }));
+    return these.length ? [wrapText(smallBranchWords(these, percent, leftOut), '  ', '    ')] : [];
+  });
+}
+
 function compensatorBlock(c: CompensatorSizing, ideal: CorrectionVerification | null, resizing: CorrectionReport['reactorResizing'], label: PhaseLabeller): string {
   const res = (title: string, s: CompensatorSizing['ideal']) =>
     `${title}: |I2|/|I1| ${fixed(s.residual.negativeSequenceCurrentPercent, 2)} %, |I0|/|I1| ${fixed(s.residual.zeroSequenceCurrentPercent, 2)} %` +
@@ -264,6 +273,7 @@ function compensatorBlock(c: CompensatorSizing, ideal: CorrectionVerification | 
     `  ideal solution (may need reactors), re-solved:`,
     sizingTable(c.ideal.branches, label),
     indentLines([res('ideal residual', c.ideal)]),
+    ...smallBranchLines(c, label),
     ideal ? `  ideal solution verified: lines ${ideal.lines.map((l) => `${label(l.phase)} ${pfFigure(l.pf.after)}`).join(', ')}` : '',
     '',
     indentLines(['best capacitor-only solution (least remaining unbalance and reactive error, no line made to lead):']),
@@ -272,7 +282,7 @@ function compensatorBlock(c: CompensatorSizing, ideal: CorrectionVerification | 
     indentLines([
       c.recommended === 'ideal'
         ? resizing?.used
-          ? `built: the ideal solution with capacitors from units and the reactors sized again beside them (${resizing.reactors.map((r) => `${label(r.branch)} ${fixed(r.sizedKvar, 2)} → ${fixed(r.resizedKvar, 2)} kvar`).join(', ')}), because capacitors alone miss the target`
+          ? `built: the ideal solution with capacitors from units and the reactors sized again beside them (${reactorChanges(resizing.reactors.map((r) => ({ ...r, branch: label(r.branch) })))}), because capacitors alone miss the target`
           : 'built: the ideal solution (capacitors from units, reactors as sized), because capacitors alone miss the target'
         : 'built: the capacitor-only solution',
     ]),

@@ -184,8 +184,11 @@ export function correctBoard(board: Board, spec: unknown): CorrectionReport {
   else status = 'meets-target';
 
   // Branch-level guesses of the selection give way to the re-solved verdict: a
-  // branch "short of its share" does not matter when the board meets the target.
-  const settledByVerdict = new Set(status === 'meets-target' ? ['units-below-target', 'tolerance-window', 'units-past-limit'] : []);
+  // branch "short of its share" does not matter when the board meets the target
+  // (at nominal capacitance too: the tolerance ends have their own warnings).
+  const settledByVerdict = new Set(
+    status === 'meets-target' ? ['units-below-target', 'tolerance-window', 'units-past-limit'] : status === 'meets-target-at-nominal-capacitance' ? ['units-below-target'] : [],
+  );
   const warnings: CorrectionWarning[] = [
     ...(status === 'already-meets-target' ? [{ code: 'nothing-to-do', message: warningText.alreadyMet, path: 'target', value: null, threshold: null }] : []),
     ...starPointWarnings(sizing, board),

@@ -88,6 +88,12 @@ export const CORRECTION_DEFAULTS = {
    * it picks the smallest bank among equally good ones and keeps the QP strictly convex.
    */
   compensatorRidge: 1e-9,
+  /**
+   * A compensator branch below this share of the compensator's total kvar is what the supply impedance
+   * leaves in an exact solution, not a component to buy: the sizing leaves it out and re-solves, and
+   * keeps it only where a target needs it (common practice, no source).
+   */
+  negligibleBranchFraction: 0.01,
   /** Outer iterations of the sizing loops (each re-solves the board). */
   maxIterations: 30,
   /**

@@ -130,6 +130,18 @@ export interface CompensatorSolution extends SizedEquipment {
   readonly lines: readonly LineComparison[];
 }
 
+/**
+ * A branch of the exact ideal compensator below CORRECTION_DEFAULTS.negligibleBranchFraction of its
+ * total kvar: left out (the ideal re-solved without it) when the board meets as many targets without
+ * it, otherwise kept because a target needs it.
+ */
+export interface SmallBranch {
+  readonly branch: string;
+  /** Its output in the exact solution at nominal voltage, kvar (+ capacitor, − reactor). */
+  readonly kvarAtNominalV: number;
+  readonly leftOut: boolean;
+}
+
 export interface CompensatorSizing {
   readonly arrangement: 'balancing-compensator';
   readonly branchesUsed: 'delta' | 'delta-and-star';
@@ -145,7 +157,10 @@ export interface CompensatorSizing {
   readonly balanceAfter: BalanceCheck;
   /** Which solution is built: the capacitor-only one, or (reactors allowed, capacitors not enough) the ideal one. */
   readonly recommended: 'capacitor-only' | 'ideal';
+  /** The ideal solution as built: its negligible branches left out where no target needs them (see `smallBranches`). */
   readonly ideal: CompensatorSolution;
+  /** Branches of the exact ideal solution too small to build, and whether they were left out. */
+  readonly smallBranches: readonly SmallBranch[];
   readonly capacitorOnly: CompensatorSolution;
   readonly status: SizingStatus;
   readonly reasons: readonly string[];

@@ -101,7 +101,12 @@ interface ResizingWords {
   readonly used: boolean;
   readonly reactors: readonly { readonly branch: PhaseLabel; readonly sizedKvar: number; readonly resizedKvar: number }[];
 }
-const reactorChanges = (reactors: ResizingWords['reactors']) => reactors.map((r) => `${r.branch} ${r.sizedKvar.toFixed(2)} → ${r.resizedKvar.toFixed(2)} kvar`).join(', ');
+/** Each branch with a reactor before or after, as printed (a branch with none either side is not a change). */
+export const reactorChanges = (reactors: ResizingWords['reactors']) =>
+  reactors
+    .filter((r) => r.sizedKvar.toFixed(2) !== '0.00' || r.resizedKvar.toFixed(2) !== '0.00')
+    .map((r) => `${r.branch} ${r.sizedKvar.toFixed(2)} → ${r.resizedKvar.toFixed(2)} kvar`)
+    .join(', ');
 
 export const warningText = {
   reactorsResized: (reactors: ResizingWords['reactors']) =>
@@ -130,7 +135,7 @@ export const warningText = {
   starPointShift: (shiftV: number, percent: number, lowV: number, highV: number) =>
     `the floating star point of the bank sits ${f1(shiftV)} V (${percent.toFixed(0)} % of line-to-neutral) from the centroid of the line voltages, so its elements see ${f1(lowV)}–${f1(highV)} V: a star bank with unequal branches on a board without a neutral works against itself; consider a delta bank`,
   reactorsNeeded: (branches: readonly PhaseLabel[], capacitorShortfalls: readonly string[]) =>
-    `capacitors alone would leave ${capacitorShortfalls.join('; ') || 'the target unmet'}: the recommended compensator includes reactors on ${branches.join(', ')} (Steinmetz/Gyugyi); set compensator.reactors: none for capacitors only`,
+    `with capacitors alone ${capacitorShortfalls.join('; ') || 'the target is not met'}: the recommended compensator includes reactors on ${branches.join(', ')} (Steinmetz/Gyugyi); set compensator.reactors: none for capacitors only`,
   reactorsNotSelected: 'reactors are given as continuous values only (kvar, mH); choosing reactor hardware is not part of this study',
   unbalanceWorse: (before: number, after: number, points: number) =>
     `the equipment makes the current unbalance worse: |I2|/|I1| rises from ${f1(before)} % to ${f1(after)} % (flagged above a rise of ${points} percentage points); the supply transformer and upstream motors carry the extra negative-sequence current`,
@@ -165,6 +170,15 @@ export const compensatorWording = {
   leadingDropped: 'the capacitor-only compensator could not keep every line from leading while balancing; the leading bound was dropped for it and the result reports which lines lead',
   notConverged: (kind: string, iterations: number) => `the ${kind} compensator did not settle in ${iterations} iterations`,
 };
+
+/** Branches of the exact ideal solution below the negligible share (`percent` of the compensator), and what became of them. */
+export function smallBranchWords(small: readonly { branch: PhaseLabel; kvarAtNominalV: number }[], percent: number, leftOut: boolean): string {
+  const list = small.map((b) => `${b.kvarAtNominalV > 0 ? 'a capacitor' : 'a reactor'} of ${Math.abs(b.kvarAtNominalV).toFixed(2)} kvar on ${b.branch}`).join(', ');
+  const them = small.length > 1 ? 'them' : 'it';
+  return leftOut
+    ? `the exact solution also has ${list}, below ${f1(percent)} % of the compensator: what the supply impedance leaves, not a component to buy; left out, and the solution re-solved without ${them}`
+    : `the exact solution has ${list}, below ${f1(percent)} % of the compensator, kept: without ${them} the board meets fewer of the targets (power factor, balance)`;
+}
 
 export const selectionWording = {
   typicalNote:

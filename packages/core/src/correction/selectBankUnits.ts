@@ -317,17 +317,15 @@ export function selectBankUnits(sized: SizedEquipment, options?: SelectBankUnits
   }
   if (sized.branches.some((b) => b.element === 'reactor')) warn('reactors-not-selected', warningText.reactorsNotSelected);
 
-  // A reactor below 1 % of the compensator is what the supply impedance leaves in the
-  // exact solution, not something to build (common practice, no source).
-  const totalKvar = sized.branches.reduce((sum, b) => sum + Math.abs(b.kvarAtNominalV), 0);
-  const negligible = (b: (typeof sized.branches)[number]) => Math.abs(b.kvarAtNominalV) < 0.01 * totalKvar;
+  // Reactors stay as sized: the sizing already left out the negligible ones (see negligibleBranches.ts),
+  // so the units' table shows the compensator the sizing table does.
   let k = 0;
   const equipment: EquipmentGroup[] = sized.equipment.map((g) => ({
     ...g,
     branches: g.branches.map((br): EquipmentBranch => {
       const i = k++;
       const b = sized.branches[i]!;
-      const reactor = b.element === 'reactor' && !negligible(b);
+      const reactor = b.element === 'reactor';
       return { ...br, susceptanceS: reactor ? b.susceptanceS : designF[i]! * omega, fixedSusceptanceS: reactor ? b.susceptanceS : fixedF[i]! * omega };
     }),
   }));
@@ -342,7 +340,7 @@ export function selectBankUnits(sized: SizedEquipment, options?: SelectBankUnits
   const selections = branchInfo.map(({ b, slot, highestVoltageV, requiredRatedV }, i): BranchSelection => {
     const need = usedNeed[i]!;
     const share = perBranch(i);
-    const reactor = b.element === 'reactor' && !negligible(b);
+    const reactor = b.element === 'reactor';
     const design = designF[i]!;
     return {
       branch: b.branch,

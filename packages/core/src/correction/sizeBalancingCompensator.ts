@@ -21,9 +21,10 @@ import { parseOptions } from '../_internal/zodIssues.js';
 import { labellerOf } from '../board/conventions/phaseNames.js';
 import { createProbe, type ProbeState } from './_internal/boardProbe.js';
 import { branchSizings, lineComparisons } from './_internal/branchReadings.js';
-import { residualBasesFor, residualWeights } from './_internal/compensatorResidual.js';
+import { compensatorResidual, residualBasesFor, residualWeights } from './_internal/compensatorResidual.js';
 import { solveIdealCompensator } from './_internal/idealCompensator.js';
 import { solveCapacitorOnlyCompensator } from './_internal/capacitorOnlyCompensator.js';
+import { leaveOutNegligible } from './_internal/negligibleBranches.js';
 
 export interface CompensatorOptions {
   /**
@@ -148,6 +149,10 @@ export function sizeBalancingCompensator(board: Board, options?: CompensatorOpti
 
   const ideal = solveIdealCompensator(probe, bases, opts.maxIterations);
   if (!ideal.converged) warn('not-converged', compensatorWording.notConverged('ideal', ideal.iterations));
+  // Targets met (the PF target, the balance target): more is better.
+  const targetsMet = (state: ProbeState) => Number(checkTarget(state.result, target, start.result).met) + Number(checkBalance(state.result, opts.balance).met);
+  // The exact solution's negligible branches are left out here, once, so every table and the build agree.
+  const idealBuilt = leaveOutNegligible(probe, ideal.state, targetsMet);
   const lowerTan = lineBands(target, start, 'limit').map((b) => b.low);
   const capOnly = solveCapacitorOnlyCompensator(probe, bases, {
     weights,
@@ -159,11 +164,14 @@ export function sizeBalancingCompensator(board: Board, options?: CompensatorOpti
   if (!capOnly.converged) warn('not-converged', compensatorWording.notConverged('capacitor-only', capOnly.iterations));
   if (capOnly.leadingConstraintsDropped) warn('leading-bound-dropped', compensatorWording.leadingDropped);
 
-  const idealSolution = solution('ideal', ideal.state, 0, ideal.converged);
+  // Exact (objective 0) as solved; with a negligible branch left out, the small residual it leaves is its objective.
+  const leftOut = idealBuilt.small.some((b) => b.leftOut);
+  const idealObjective = leftOut ? compensatorResidual(idealBuilt.state, bases).reduce((sum, r, k) => sum + weights[k]! * r * r, 0) : 0;
+  const idealSolution = solution('ideal', idealBuilt.state, idealObjective, ideal.converged && !leftOut);
   const capSolution = solution('capacitor-only', capOnly.state, capOnly.objective, Math.sqrt(capOnly.objective) < 1e-6);
   const balanceBefore = checkBalance(start.result, opts.balance);
   const balanceAfter = checkBalance(capOnly.state.result, opts.balance);
-  const idealBalance = checkBalance(ideal.state.result, opts.balance);
+  const idealBalance = checkBalance(idealBuilt.state.result, opts.balance);
   const idealWorks = opts.reactors === 'allowed' && idealSolution.check.met && idealBalance.met && ideal.converged;
   let status: CompensatorSizing['status'] = 'infeasible';
   let recommended: CompensatorSizing['recommended'] = 'capacitor-only';
@@ -201,6 +209,7 @@ export function sizeBalancingCompensator(board: Board, options?: CompensatorOpti
     balanceAfter: recommended === 'ideal' ? idealBalance : balanceAfter,
     recommended,
     ideal: idealSolution,
+    smallBranches: idealBuilt.small,
     capacitorOnly: capSolution,
     status,
     reasons,

@@ -16,6 +16,9 @@ import type { BeforeAfter, BranchSizing, LineComparison, PfBeforeAfter } from '.
 const EMPTY_FRACTION = 1e-6;
 const EMPTY_KVAR = 1e-9;
 
+/** The output below which a branch of a set of `totalKvar` reads as empty (element `none`). */
+export const emptyBelowKvar = (totalKvar: number): number => Math.max(EMPTY_KVAR, EMPTY_FRACTION * totalKvar);
+
 export const beforeAfter = (before: number, after: number): BeforeAfter => ({ before, after, change: after - before });
 
 /** PF before and after; null on a side where the line carries no current (no PF). */
@@ -33,7 +36,7 @@ export function branchSizings(
 ): BranchSizing[] {
   const first = board.loads.length - groups.length;
   const total = groups.reduce((sum, g) => sum + g.branches.reduce((t, b) => t + Math.abs(b.susceptanceS * b.vNominal ** 2) / 1000, 0), 0);
-  const empty = Math.max(EMPTY_KVAR, EMPTY_FRACTION * total);
+  const empty = emptyBelowKvar(total);
   let k = 0;
   return groups.flatMap((group, g) =>
     group.branches.map((b, bi): BranchSizing => {

@@ -7,6 +7,7 @@
  * same no-leading bounds) with the reactor outputs as its only unknowns, each
  * ≥ 0 as an inductive output, on the solved board — and the balance target
  * (|I2|/|I1|, neutral) held as constraints where the reactors can hold it.
+ * A re-sized reactor whose removal meets more of the targets is removed.
  * Where the build as sized misses a target, the re-sized reactors are built
  * when they meet more of the targets (PF, balance), or as many with a lower
  * residual.
@@ -22,6 +23,7 @@ import { createProbe, type BoardProbe, type ProbeState } from './boardProbe.js';
 import { lineBands } from './lineBands.js';
 import { compensatorResidual, residualBasesFor, residualWeights } from './compensatorResidual.js';
 import { solveCapacitorOnlyCompensator } from './capacitorOnlyCompensator.js';
+import { negligibleKvar } from './negligibleBranches.js';
 
 export interface ReactorRefitInput {
   readonly target: ResolvedTarget;
@@ -56,6 +58,26 @@ function withOutputs(state: ProbeState, kvar: readonly number[]): ProbeState {
     lineQ: state.lineQ,
     lineS: state.lineS,
   };
+}
+
+/**
+ * The least-squares re-sizing trades the PF target against the balance, so it can put in a reactor
+ * that costs the PF target while the balance target holds without it. Smallest first, a reactor
+ * whose removal meets more of the targets is removed (re-solved each time): it is not bought.
+ */
+function withoutHarmfulReactors(probe: BoardProbe, state: ProbeState, targetsMet: (s: ProbeState) => number): { kvar: number[]; state: ProbeState } {
+  let kvar = [...state.kvar];
+  let current = state;
+  let met = targetsMet(current);
+  const order = kvar.map((q, i) => [q, i] as const).filter(([q]) => q > 0).sort((a, b) => a[0] - b[0]);
+  for (const [, i] of order) {
+    if (met === 2) break; // both targets met: nothing to gain
+    const without = kvar.map((q, j) => (j === i ? 0 : q));
+    const trial = probe.at(without);
+    const metWithout = targetsMet(trial);
+    if (metWithout > met) [kvar, current, met] = [without, trial, metWithout];
+  }
+  return { kvar, state: current };
 }
 
 /** The reactors of `built` re-sized to its capacitors; null when it has no reactor. */
@@ -110,13 +132,12 @@ export function refitReactors(board: Board, built: readonly EquipmentGroup[], in
       zeroSequence: input.balance.maxNeutralPercent === null ? null : input.balance.maxNeutralPercent / 300,
     },
   });
-  // A reactor below 1 % of the compensator is not worth building (as in selectBankUnits) unless a target needs it.
-  const total = built.flatMap((g) => g.branches).reduce((sum, b) => sum + Math.abs(kvarFromSusceptance(b.susceptanceS, b.vNominal)), 0);
-  const trimmed = outcome.state.kvar.map((q) => (q < 0.01 * total ? 0 : q));
+  // A negligible reactor is not worth building (as in the sizing, negligibleBranches.ts) unless a target needs it.
+  const floor = negligibleKvar(built.flatMap((g) => g.branches).map((b) => kvarFromSusceptance(b.susceptanceS, b.vNominal)));
+  const trimmed = outcome.state.kvar.map((q) => (q < floor ? 0 : q));
   const trimmedState = trimmed.every((q, i) => q === outcome.state.kvar[i]) ? outcome.state : probe.at(trimmed);
   const keepSmall = targetsMet(trimmedState) < targetsMet(outcome.state);
-  const resized = keepSmall ? outcome.state.kvar : trimmed;
-  const resizedState = keepSmall ? outcome.state : trimmedState;
+  const { kvar: resized, state: resizedState } = withoutHarmfulReactors(probe, keepSmall ? outcome.state : trimmedState, targetsMet);
   const sizedState = probe.at(sizedKvar);
   const objectiveSized = objectiveOf(sizedState);
   const objectiveResized = objectiveOf(resizedState);

@@ -6,6 +6,8 @@
 import type { BoardBaseSpec } from '../../board/boardSchema.js';
 import type { BoardResult } from '../../analysis/boardResult.js';
 import type { CorrectionReport } from '../../correction/correctionResult.js';
+import type { CorrectionComparison } from '../../correction/compareCorrections.js';
+import { correctionComparisonSection } from './correctionComparisonBlocks.js';
 import type { HarmonicsReport } from '../../harmonics/harmonicsResult.js';
 import { harmonicsSection, HARMONICS_STANDARDS } from './harmonicsSection.js';
 import type { HandCheckResult } from '../../handCheck/handCheckResult.js';
@@ -20,8 +22,10 @@ export interface BoardReportInput {
   readonly spec: BoardBaseSpec;
   /** The solved board. */
   readonly result: BoardResult;
-  /** A correction study of the same board, if one ran. @defaultValue none */
+  /** A correction study of the same board, if one ran (with no arrangement named: the recommended one's). @defaultValue none */
   readonly correction?: CorrectionReport | null;
+  /** The arrangements compared, when the study named no arrangement (`compareCorrections`). @defaultValue none */
+  readonly correctionComparison?: CorrectionComparison | null;
   /** A harmonic study of the same board, if one ran; its section replaces the correction's resonance estimate. @defaultValue none */
   readonly harmonics?: HarmonicsReport | null;
   /**
@@ -93,11 +97,12 @@ export function buildBoardReport(input: BoardReportInput): ReportDocument {
   const sections: ReportSection[] = [installationSection(spec, result), scheduleSection(spec, result), resultsSection(result)];
   const openNeutral = openNeutralSection(result);
   if (openNeutral) sections.push(openNeutral);
+  const comparison = input.correctionComparison ?? null;
   if (correction) {
-    sections.push(correctionSection(correction));
+    sections.push(correctionSection(correction, comparison));
     const resonance = resonanceSection(correction);
     if (resonance) sections.push(resonance);
-  }
+  } else if (comparison) sections.push(correctionComparisonSection(comparison));
   if (input.harmonics) placeSection(sections, harmonicsSection(input.harmonics));
   if (input.handCheck) placeSection(sections, handCheckSection(input.handCheck.result, input.handCheck.triangles, result.conventions.phaseNames));
   for (const extra of input.studySections ?? []) placeSection(sections, extra);

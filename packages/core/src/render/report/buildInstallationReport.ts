@@ -7,6 +7,8 @@
 import type { InstallationBaseSpec } from '../../board/installationSchema.js';
 import type { InstallationResult } from '../../analysis/installationResult.js';
 import type { CorrectionReport } from '../../correction/correctionResult.js';
+import type { CorrectionComparison } from '../../correction/compareCorrections.js';
+import { correctionComparisonSection } from './correctionComparisonBlocks.js';
 import type { InstallationEffect } from '../../correction/installationEffect.js';
 import type { InstallationHarmonicsReport } from '../../harmonics/harmonicsResult.js';
 import { installationCorrectionSection } from './installationCorrectionSection.js';
@@ -25,6 +27,11 @@ export interface InstallationReportInput {
   readonly result: InstallationResult;
   /** A correction study at one board of the installation (`correctInstallation`), if one ran. @defaultValue none */
   readonly correction?: { readonly board: string; readonly report: CorrectionReport; readonly effect: InstallationEffect } | null;
+  /**
+   * The arrangements compared at that board, when the study named no arrangement
+   * (`compareInstallationCorrections`; `correction` is then the recommended one's, if any). @defaultValue none
+   */
+  readonly correctionComparison?: { readonly board: string; readonly comparison: CorrectionComparison } | null;
   /**
    * The installation's harmonic study (`studyInstallationHarmonics`), if one ran: an overview and a
    * section per board; the overview replaces a correction study's resonance estimate. @defaultValue none
@@ -55,12 +62,13 @@ export function buildInstallationReport(input: InstallationReportInput): ReportD
     if (open) sections.push({ ...atBoard(open, b.name), id: `${ids.get(b.name)!}-open-neutral` });
   }
   const correction = input.correction ?? null;
+  const compared = input.correctionComparison ?? null;
   if (correction) {
-    sections.push(atBoard(correctionSection(correction.report), correction.board));
+    sections.push(atBoard(correctionSection(correction.report, compared?.comparison ?? null), correction.board));
     const resonance = resonanceSection(correction.report);
     if (resonance) sections.push(atBoard(resonance, correction.board));
     sections.push(installationCorrectionSection(correction.effect));
-  }
+  } else if (compared) sections.push(atBoard(correctionComparisonSection(compared.comparison), compared.board));
   const harmonics = input.harmonics ?? null;
   if (harmonics) {
     // The overview takes the place of a resonance estimate; the boards' sections follow it.

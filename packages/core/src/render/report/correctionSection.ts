@@ -4,6 +4,8 @@
  * study's plain result, so the study can grow without touching the report.
  */
 import type { CorrectionReport } from '../../correction/correctionResult.js';
+import type { CorrectionComparison } from '../../correction/compareCorrections.js';
+import { correctionComparisonBlocks } from './correctionComparisonBlocks.js';
 import { meteringPointWords } from '../../correction/correctionWording.js';
 import { fixed } from '../svgText.js';
 import { renderPhasorDiagram } from '../renderPhasorDiagram.js';
@@ -68,11 +70,13 @@ function meteringFacts(report: CorrectionReport): [string, string][] {
   ];
 }
 
-export function correctionSection(report: CorrectionReport): ReportSection {
+/** @param comparison the arrangements compared, when the study named none and `report` is the one recommended */
+export function correctionSection(report: CorrectionReport, comparison: CorrectionComparison | null = null): ReportSection {
   const v = report.verification;
   // Lines as the board file names them (L1 or A).
   const label = labellerOf(v.before.conventions.phaseNames);
   const blocks: ReportBlock[] = [
+    ...(comparison ? correctionComparisonBlocks(comparison) : []),
     { kind: 'paragraph', text: report.summary },
     {
       kind: 'facts',
