@@ -4,7 +4,7 @@
  * study's plain result, so the study can grow without touching the report.
  */
 import type { CorrectionReport } from '../../correction/correctionResult.js';
-import { meteringPointWords } from '../../correction/correctionWording.js';
+import { arrangementDescriptions, meteringPointWords } from '../../correction/correctionWording.js';
 import { fixed } from '../svgText.js';
 import { renderPhasorDiagram } from '../renderPhasorDiagram.js';
 import { renderCurrentTriangles } from '../renderCurrentTriangles.js';
@@ -16,6 +16,11 @@ const ARRANGEMENT_WORDS: Readonly<Record<string, string>> = {
   'star-bank': 'capacitor bank in star',
   'delta-bank': 'capacitor bank in delta',
   'balancing-compensator': 'balancing compensator (delta and star branches)',
+};
+/** Where star and delta name nothing (a split-phase or single-phase board), the board's own words. */
+const arrangementWords = (report: CorrectionReport): string => {
+  const system = report.verification.before.board.system;
+  return system === 'three-phase-4wire' || system === 'three-phase-3wire' ? (ARRANGEMENT_WORDS[report.arrangement] ?? report.arrangement) : arrangementDescriptions(system)[report.arrangement];
 };
 
 /** Losses before → after, the change worded by its sign ("saves", "adds") so a negative saving never reads as one. */
@@ -77,7 +82,7 @@ export function correctionSection(report: CorrectionReport): ReportSection {
     {
       kind: 'facts',
       items: [
-        ['Arrangement', ARRANGEMENT_WORDS[report.arrangement] ?? report.arrangement],
+        ['Arrangement', arrangementWords(report)],
         ['Outcome', report.status.replace(/-/g, ' ')],
         ...meteringFacts(report),
         ['Power factor, vector', `${fixed(v.powerFactor.vector.before, 3)} → ${fixed(v.powerFactor.vector.after, 3)}`],
