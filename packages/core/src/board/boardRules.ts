@@ -10,6 +10,7 @@ import { conductorResistance, tabulatedSizes } from './cableLibrary.js';
 import { readVoltageNotation } from './conventions/voltageNotation.js';
 import { labellerOf, type PhaseLabeller, type PhaseNaming } from './conventions/phaseNames.js';
 import { isPerPhaseLine, lengthOf, materialOf, sizeOf } from './feederModel.js';
+import { conductorSizeHint } from './conductorSizeSpelling.js';
 
 /**
  * A cross-field rule: the problems it finds in a board that passed the schema, its sentences naming
@@ -86,7 +87,8 @@ function conductorIssues(conductor: ConductorSpec | undefined, path: string, fee
   if (size && sizes === 1 && !conductorResistance(size, materialOf(conductor))) {
     const field = 'mm2' in size ? 'mm2' : 'awg' in size ? 'awg' : 'kcmil';
     const metal = materialOf(conductor);
-    issues.push(inputIssue('unknown_size', `${path}.${field}`, `a ${metal} size in ${'mm2' in size ? 'IEC 60228' : 'NEC Chapter 9 Table 8'}: ${tabulatedSizes(size, metal).map((k) => k.replace(' kcmil', '')).join(', ')}`, Object.values(size)[0]));
+    const hint = field === 'mm2' ? '' : conductorSizeHint(field, Object.values(size)[0], metal);
+    issues.push(inputIssue('unknown_size', `${path}.${field}`, `a ${metal} size in ${'mm2' in size ? 'IEC 60228' : 'NEC Chapter 9 Table 8'}: ${tabulatedSizes(size, metal).map((k) => k.replace(' kcmil', '')).join(', ')}${hint}`, Object.values(size)[0]));
   }
   if (perLength || ownLength) {
     if (lengthOf(conductor, feeder) === null) issues.push(inputIssue('missing', `${path}.lengthM`, 'the route length (lengthM or lengthFt, here or on the feeder)'));
