@@ -267,7 +267,8 @@ export { PHASE_NAMINGS, labelIn, labellerOf, phaseLabels } from './board/convent
 export type { VoltageNotation, NotationReading } from './board/conventions/voltageNotation.js';
 export { readVoltageNotation, writeVoltageNotation, NOTATION_RATIO_TOLERANCE } from './board/conventions/voltageNotation.js';
 export type { VoltageLimits, VoltageLimitPreset, VoltageLimitPresetName } from './board/conventions/voltageLimits.js';
-export { VOLTAGE_LIMIT_PRESETS, judgeVoltage, bandWords } from './board/conventions/voltageLimits.js';
+export { VOLTAGE_LIMIT_PRESETS, judgeVoltage, bandVolts, bandVoltsWords, bandWords } from './board/conventions/voltageLimits.js';
+export { judgedNominals } from './analysis/voltageCheck.js';
 export type { Region, RegionBasis } from './board/conventions/region.js';
 export { inferRegion } from './board/conventions/region.js';
 export type { BoardConventions } from './board/conventions/boardConventions.js';
