@@ -33,7 +33,7 @@ describe('the band in volts on a 208Y/120 board', () => {
     expect(html).toContain(`${llLow} – ${llHigh}`);
     expect([lnLow, lnHigh]).toEqual([(result.board.nominalLineToNeutralV * 0.95).toFixed(1), (result.board.nominalLineToNeutralV * 1.05).toFixed(1)]);
     // The HTML note says the same as the text.
-    expect(html).toContain(`on this board ${ln} V: ${lnLow}–${lnHigh} V line-to-neutral`);
+    expect(html).toContain(`(c84-service-a), on this board ${ln} V: ${lnLow}–${lnHigh} V line-to-neutral`);
   });
 
   it('no fixed example of another nominal beside them', () => {

@@ -145,7 +145,7 @@ export interface VoltageBand {
 /** The band of the board's own voltage limits (`conventions.voltageLimits`), which its warnings and verdict use. */
 export function bandOf(result: BoardResult): VoltageBand {
   const l = result.voltageCheck.limits;
-  return { lowPercent: -l.underPercent, highPercent: l.overPercent, source: `${bandWords(l)} of nominal (${l.preset}; on this board ${bandVoltsWords(l, judgedNominals(result))}): ${l.source}` };
+  return { lowPercent: -l.underPercent, highPercent: l.overPercent, source: `${bandWords(l)} of nominal (${l.preset}), on this board ${bandVoltsWords(l, judgedNominals(result))}: ${l.source}` };
 }
 
 /** The EN 50160 low-voltage supply band (±10 %), the IEC default. */
