@@ -81,8 +81,8 @@ loads:
   - { name: freezer, connection: B-N, kW: 1, pf: 0.7 }
 `;
   for (const [arrangement, lettered, numbered] of [
-    ['star-bank', ['star bank A-N', 'star bank B-N'], ['star bank L1-N', 'star bank L2-N']],
-    ['delta-bank', ['delta bank A-B'], ['delta bank L1-L2']],
+    ['star-bank', ['line-to-neutral bank A-N', 'line-to-neutral bank B-N'], ['line-to-neutral bank L1-N', 'line-to-neutral bank L2-N']],
+    ['delta-bank', ['line-to-line bank A-B'], ['line-to-line bank L1-L2']],
   ] as const)
     it(`${arrangement} on a split-phase board: ${numbered.join(', ')} in an L-named file, the same figures`, () => {
       const named = correctBoard(boardOf(inNumberedNames(HOUSE)), { arrangement });

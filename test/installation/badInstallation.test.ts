@@ -40,8 +40,8 @@ const installationCases: [string, unknown, string, string, RegExp][] = [
   ['duplicate board names', editInstallation((b) => (b.boards[2].name = 'Floor 1')), 'duplicate', 'boards[2].name', /boards\[1\]/],
   // The sizes listed smallest first, as the tables print them (IEC 60228; NEC Chapter 9 Table 8).
   ['an unknown conductor size', editInstallation((b) => (b.boards[1].feeder.line.mm2 = 17)), 'unknown_size', 'boards[1].feeder.line.mm2', /: 1\.5, 2\.5, 4, 6, 10, 16, 25, .*, 500, 630 \(received/],
-  ['an unknown AWG size', editInstallation((b) => (b.boards[1].feeder.line = { awg: '5' })), 'unknown_size', 'boards[1].feeder.line.awg', /: 14, 12, 10, 8, 6, 4, 3, 2, 1, 1\/0, 2\/0, 3\/0, 4\/0 \(received/],
-  ['an unknown kcmil size', editInstallation((b) => (b.boards[1].feeder.line = { kcmil: 450 })), 'unknown_size', 'boards[1].feeder.line.kcmil', /: 250, 300, 350, 400, 500, 600, 700, 750, 800, 900, 1000 \(received/],
+  ['an unknown AWG size', editInstallation((b) => (b.boards[1].feeder.line = { awg: '5' })), 'unknown_size', 'boards[1].feeder.line.awg', /: 14, 12, 10, 8, 6, 4, 3, 2, 1, 1\/0, 2\/0, 3\/0, 4\/0; AWG sizes are text .* \(received/],
+  ['an unknown kcmil size', editInstallation((b) => (b.boards[1].feeder.line = { kcmil: 450 })), 'unknown_size', 'boards[1].feeder.line.kcmil', /: 250, 300, 350, 400, 500, 600, 700, 750, 800, 900, 1000; AWG sizes are text .* \(received/],
   ['aluminium below the table', editInstallation((b) => (b.boards[1].feeder.neutral = { mm2: 4, material: 'aluminium' })), 'unknown_size', 'boards[1].feeder.neutral.mm2', /aluminium/],
   ['a size without a length', editInstallation((b) => delete b.boards[1].feeder.lengthM), 'missing', 'boards[1].feeder.line.lengthM', /length/],
   ['a size and ohm/km both', editInstallation((b) => (b.boards[1].feeder.line.rOhmPerKm = 0.7)), 'conflict', 'boards[1].feeder.line', /not both/],

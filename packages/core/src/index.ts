@@ -134,7 +134,7 @@ export type { InstallationEffect, BoardEffect, IncomerLineEffect, SupplyEffect }
 export { installationEffect } from './correction/installationEffect.js';
 export { ORIGIN_POINT, meteringPoints, meteringPointIssues } from './correction/meteringPoint.js';
 export type * from './correction/correctionResult.js';
-export { CORRECTION_CAUTIONS, meteringPointWords, reactorChanges, smallBranchWords } from './correction/correctionWording.js';
+export { arrangementDescriptions, arrangementNames, CORRECTION_CAUTIONS, meteringPointWords, reactorChanges, smallBranchWords } from './correction/correctionWording.js';
 
 // Load over time (trivar profile)
 export type { ProfileSpec, ScenarioSpec, TariffSpec, ProfileBankSpec, BankStepSpec, ProfileLimitsSpec } from './profile/profileSpec.js';
@@ -267,7 +267,8 @@ export { PHASE_NAMINGS, labelIn, labellerOf, phaseLabels } from './board/convent
 export type { VoltageNotation, NotationReading } from './board/conventions/voltageNotation.js';
 export { readVoltageNotation, writeVoltageNotation, NOTATION_RATIO_TOLERANCE } from './board/conventions/voltageNotation.js';
 export type { VoltageLimits, VoltageLimitPreset, VoltageLimitPresetName } from './board/conventions/voltageLimits.js';
-export { VOLTAGE_LIMIT_PRESETS, judgeVoltage, bandWords } from './board/conventions/voltageLimits.js';
+export { VOLTAGE_LIMIT_PRESETS, judgeVoltage, bandVolts, bandVoltsWords, bandWords } from './board/conventions/voltageLimits.js';
+export { judgedNominals } from './analysis/voltageCheck.js';
 export type { Region, RegionBasis } from './board/conventions/region.js';
 export { inferRegion } from './board/conventions/region.js';
 export type { BoardConventions } from './board/conventions/boardConventions.js';

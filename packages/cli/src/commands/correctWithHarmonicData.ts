@@ -8,12 +8,12 @@ import type { CliIo } from '../io.js';
 import { writeResult } from '../writeResult.js';
 import { renderCorrectionReport } from '../format/correctionReport.js';
 import { renderComparisonHarmonics, renderCorrectionHarmonics } from '../format/correctionHarmonicsReport.js';
-import { renderComparisonReport } from '../format/comparisonReport.js';
+import { comparedSystem, renderComparisonReport, tableNames } from '../format/comparisonReport.js';
 
 /** Every arrangement compared, each with its harmonic check; writes the result. */
 export function writeComparisonWithHarmonics(spec: BoardSpec, board: Board, study: Record<string, unknown>, json: boolean | undefined, io: CliIo): HarmonicComparison {
   const comparison = compareWithHarmonics(spec, board, study);
-  writeResult(io, comparison, json, (c: HarmonicComparison) => renderComparisonReport(c) + renderComparisonHarmonics(c.harmonics));
+  writeResult(io, comparison, json, (c: HarmonicComparison) => renderComparisonReport(c) + renderComparisonHarmonics(c.harmonics, tableNames(comparedSystem(c))));
   return comparison;
 }
 

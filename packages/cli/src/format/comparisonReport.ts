@@ -1,12 +1,25 @@
 /** CorrectionComparison → the side-by-side report of `trivar correct` without an arrangement (fits 100 columns). */
 import { boundFigure } from './correctionReport.js';
-import type { ArrangementOutcome, CorrectionComparison } from '@trivar/core';
+import { arrangementNames, type Arrangement, type ArrangementOutcome, type CorrectionComparison } from '@trivar/core';
 import { fixed, renderTable, section } from './textTable.js';
 import { headerLines } from './solveReport.js';
 import { renderCorrectionReport } from './correctionReport.js';
 import { wrapText } from './wrapText.js';
 
-const NAMES: Record<string, string> = { 'star-bank': 'star bank', 'delta-bank': 'delta bank', 'balancing-compensator': 'compensator' };
+const TWO_LINE_TABLE_NAMES = { 'star-bank': 'L-N bank', 'delta-bank': 'L-L bank' } as const;
+const TWO_LINE_LEGEND = 'L-N bank: capacitors from each line to the neutral; L-L bank: capacitors across the two lines';
+
+/**
+ * The arrangements' names in the comparison's tables: the board's own words (arrangementNames), the
+ * compensator shortened, and on a board without three phases L-N / L-L so the table keeps to 100 columns.
+ */
+export const tableNames = (system: string): Readonly<Record<Arrangement, string>> => {
+  const names = { ...arrangementNames(system), 'balancing-compensator': 'compensator' };
+  return names['star-bank'] === 'star bank' ? names : { ...names, ...TWO_LINE_TABLE_NAMES };
+};
+
+/** The system of the board compared (every outcome's study is of the same board). */
+export const comparedSystem = (c: CorrectionComparison): string => c.outcomes.find((o) => o.report)?.report?.verification.before.board.system ?? 'three-phase-4wire';
 
 const VERDICT: Record<string, string> = {
   'meets-target': 'meets',
@@ -17,8 +30,8 @@ const VERDICT: Record<string, string> = {
   'no-suitable-units': 'no units fit',
 };
 
-function row(o: ArrangementOutcome): string[] {
-  const name = NAMES[o.arrangement] ?? o.arrangement;
+function row(o: ArrangementOutcome, names: Readonly<Record<Arrangement, string>>): string[] {
+  const name = names[o.arrangement] ?? o.arrangement;
   if (!o.report || !o.figures) return [name, 'not applicable', '', '', '', '', '', '', '', ''];
   const f = o.figures;
   const built = o.report.status !== 'no-suitable-units';
@@ -38,6 +51,8 @@ function row(o: ArrangementOutcome): string[] {
 
 export function renderComparisonReport(c: CorrectionComparison): string {
   const first = c.outcomes.find((o) => o.report)?.report;
+  const system = comparedSystem(c);
+  const names = tableNames(system);
   const parts: string[] = [];
   if (first) {
     parts.push(headerLines(first.verification.before).slice(0, 2).join('\n'));
@@ -58,18 +73,18 @@ export function renderComparisonReport(c: CorrectionComparison): string {
           { header: 'I2/I1 %' },
           { header: 'loss kW' },
         ],
-        c.outcomes.map(row),
+        c.outcomes.map((o) => row(o, names)),
       ) +
       '\n' +
       [
-        'delivered: kvar at the solved voltage (+L: reactor kvar); nom C: at nominal capacitance only; plate: nameplate kvar; PF after: the PF the target is defined on (per-line: the lowest line); neutral: A after; loss: source + feeder after',
-        ...c.outcomes.filter((o) => o.notApplicable).map((o) => `${NAMES[o.arrangement]}: ${o.notApplicable}`),
+        `${names['star-bank'] === TWO_LINE_TABLE_NAMES['star-bank'] ? `${TWO_LINE_LEGEND}; ` : ''}delivered: kvar at the solved voltage (+L: reactor kvar); nom C: at nominal capacitance only; plate: nameplate kvar; PF after: the PF the target is defined on (per-line: the lowest line); neutral: A after; loss: source + feeder after`,
+        ...c.outcomes.filter((o) => o.notApplicable).map((o) => `${arrangementNames(system)[o.arrangement]}: ${o.notApplicable}`),
       ]
         .map((l) => wrapText(l, '  ', '    '))
         .join('\n'),
   );
   parts.push(section('Recommendation') + wrapText(c.why, '  ', '    ') + '\n' + wrapText(`(rule: ${c.rule})`, '  ', '    '));
   const chosen = c.outcomes.find((o) => o.arrangement === c.recommended)?.report;
-  if (chosen) parts.push(section(`The recommended ${NAMES[chosen.arrangement]} in full`) + '\n' + renderCorrectionReport(chosen).trimEnd());
+  if (chosen) parts.push(section(`The recommended ${arrangementNames(system)[chosen.arrangement]} in full`) + '\n' + renderCorrectionReport(chosen).trimEnd());
   return `${parts.join('\n')}\n`;
 }

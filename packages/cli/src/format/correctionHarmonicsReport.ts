@@ -1,5 +1,5 @@
 /** The harmonic comparison of plain and detuned banks, appended to `trivar correct`'s report. */
-import type { CorrectionHarmonics, HarmonicComparison } from '@trivar/core';
+import type { Arrangement, CorrectionHarmonics, HarmonicComparison } from '@trivar/core';
 import { fixed, renderTable, section } from './textTable.js';
 import { wrapText } from './wrapText.js';
 
@@ -57,8 +57,7 @@ export function renderCorrectionHarmonics(h: CorrectionHarmonics): string {
 }
 
 /** Every arrangement's plain and detuned variants in one table (comparison mode). */
-export function renderComparisonHarmonics(h: HarmonicComparison['harmonics']): string {
-  const names: Record<string, string> = { 'star-bank': 'star bank', 'delta-bank': 'delta bank', 'balancing-compensator': 'compensator' };
+export function renderComparisonHarmonics(h: HarmonicComparison['harmonics'], names: Readonly<Record<Arrangement, string>>): string {
   const rows = h.arrangements.flatMap((a) =>
     a.variants.map((v, k) => [
       k === 0 ? (names[a.arrangement] ?? a.arrangement) : '',

@@ -1,15 +1,10 @@
 /** CorrectionReport → the human-readable report of `trivar correct` (fits 100 columns). */
-import { CORRECTION_DEFAULTS, labellerOf, meteringPointWords, reactorChanges, smallBranchWords, type BankSelection, type BankStep, type BeforeAfter, type BranchSizing, type CompensatorSizing, type ControllerSettings, type CorrectionReport, type CorrectionVerification, type PhaseId, type PhaseLabeller } from '@trivar/core';
+import { arrangementDescriptions, CORRECTION_DEFAULTS, labellerOf, meteringPointWords, reactorChanges, smallBranchWords, type BankSelection, type BankStep, type BeforeAfter, type BranchSizing, type CompensatorSizing, type ControllerSettings, type CorrectionReport, type CorrectionVerification, type PhaseId, type PhaseLabeller } from '@trivar/core';
 import { fixed, renderTable, section } from './textTable.js';
 import { headerLines } from './solveReport.js';
 import { wrapText } from './wrapText.js';
 import { meteringSection } from './meteringSection.js';
 
-const ARRANGEMENT_WORDS: Record<string, string> = {
-  'star-bank': 'star-connected capacitor bank (one capacitor per phase)',
-  'delta-bank': 'delta-connected capacitor bank (one capacitor per line pair)',
-  'balancing-compensator': 'balancing compensator (Steinmetz/Gyugyi reactive branches)',
-};
 
 const STATUS_WORDS: Record<string, string> = {
   'meets-target': 'MEETS THE TARGET',
@@ -301,7 +296,7 @@ export function renderCorrectionReport(r: CorrectionReport): string {
   const target = `${r.target.statement}; PF ≥ ${boundFigure(r.target.pf)}${r.target.leading === 'never' ? ', never leading' : ', leading allowed'}${r.target.maxLaggingPf === null ? '' : `, at most ${fixed(r.target.maxLaggingPf, 3)} lagging`}`;
   const parts = [
     headerLines(v.before).slice(0, 2).join('\n'),
-    wrapText(`correction: ${ARRANGEMENT_WORDS[r.arrangement] ?? r.arrangement}`, '', '  '),
+    wrapText(`correction: ${arrangementDescriptions(v.before.board.system)[r.arrangement]}`, '', '  '),
     wrapText(`target: ${target}${r.target.measuredAt === undefined ? '' : `; measured at ${meteringPointWords(r.target.measuredAt)}`}`, '', '  '),
     '',
     wrapText(`${STATUS_WORDS[r.status] ?? r.status} — ${r.summary}`, '', '  '),

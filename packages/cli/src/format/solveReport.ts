@@ -1,5 +1,5 @@
 /** BoardResult → the human-readable report of `trivar solve`. */
-import { bandWords, labelIn, regionWords, type BoardResult } from '@trivar/core';
+import { bandVoltsWords, bandWords, judgedNominals, labelIn, regionWords, type BoardResult } from '@trivar/core';
 import { fixed, renderTable, renderTableWithin, section } from './textTable.js';
 import { REPORT_WIDTH, wrapText } from './wrapText.js';
 import { exportSentence, isExport, pfCell, varWords } from './powerFlowWords.js';
@@ -262,7 +262,8 @@ export function renderSolveReport(r: BoardResult): string {
     section('Apparent power and power factor') + powerFactorBlock(r),
     section('Power balance') + powerBlock(r),
   ];
-  parts.push(section('Voltage limits') + wrapText(voltageVerdictLine(r), '  ') + `\n${wrapText(r.voltageCheck.limits.source, '  (', '   ', REPORT_WIDTH - 1)})`);
+  const limits = r.voltageCheck.limits;
+  parts.push(section('Voltage limits') + wrapText(voltageVerdictLine(r), '  ') + `\n${wrapText(`on this board ${bandVoltsWords(limits, judgedNominals(r))}`, '  ')}\n${wrapText(limits.source, '  (', '   ', REPORT_WIDTH - 1)})`);
   if (r.openNeutral) parts.push(section('If the neutral conductor broke') + openNeutralBlock(r.openNeutral, labeller(r), wordsOf(r).sourceNeutralPoint));
   parts.push(section('Warnings') + (r.warnings.length ? r.warnings.map((w) => wrapText(w.message, '  ! ')).join('\n') : '  none'));
   parts.push(section('Notes') + r.cautions.map((c) => wrapText(c, '  * ')).join('\n'));

@@ -7,6 +7,7 @@ import { regionWords } from '../board/conventions/regionWords.js';
 import { boardVoltagePoints } from './voltageCheck.js';
 import { bandWords, judgeVoltage, presetLimits, type VoltageLimits } from '../board/conventions/voltageLimits.js';
 import type { Region } from '../board/conventions/region.js';
+import { circuitNumberMismatches } from './panelNumbering.js';
 
 export const WARNING_THRESHOLDS = {
   /** Voltage unbalance factor above which supply-quality standards start to object (EN 50160, IEC 61000-2-2: 2 %). */
@@ -140,6 +141,19 @@ export function boardWarnings(input: {
         threshold: allowed,
       });
   }
+  // North-American panel numbering only: IEC boards number their ways otherwise.
+  if (input.region === 'north-america')
+    for (const m of circuitNumberMismatches(loads, phases.length)) {
+      const rotation = phases.map((p) => label(p.phase)).join(', ');
+      const where = m.implied.length > 1 ? m.implied.map(label).join('-') : `phase ${label(m.implied[0]!)}`;
+      out.push({
+        code: 'circuit-number-phase',
+        message: `load "${m.name}" on circuit ${m.circuit} is written ${label(m.connection)}, but the usual panel numbering (odd circuits down the left, even down the right, phases ${rotation} by row) puts circuit ${m.circuit}${m.with.length ? ` (with ${m.with.join(' and ')})` : ''} on ${where}: check the schedule or the connection`,
+        // The circuit number, and the number of phases the numbering rotates through.
+        value: m.circuit,
+        threshold: phases.length,
+      });
+    }
   for (const b of input.belowThreshold)
     out.push({
       code: 'load-below-model-threshold',

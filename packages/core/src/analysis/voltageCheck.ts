@@ -5,7 +5,7 @@
  * disagree with each other or with the percentages beside them.
  */
 import { judgeVoltage, type VoltageLimits } from '../board/conventions/voltageLimits.js';
-import type { LineToLineReading, LoadReading, PhaseReading } from './boardResult.js';
+import type { BoardResult, LineToLineReading, LoadReading, PhaseReading } from './boardResult.js';
 
 export interface VoltageExtreme {
   readonly percent: number;
@@ -60,5 +60,14 @@ export function checkVoltages(input: {
     lowest,
     highest,
     verdict: under && over ? 'under-and-over' : under ? 'under' : over ? 'over' : 'within',
+  };
+}
+
+/** The nominal voltages a board's limits are judged at: phase voltages only where a neutral gives them meaning, as above. */
+export function judgedNominals(result: Pick<BoardResult, 'board' | 'neutral' | 'lineToLine' | 'phases'>): { lineToNeutralV: number | null; lineToLineV: number | null } {
+  const b = result.board;
+  return {
+    lineToNeutralV: result.neutral !== null || result.lineToLine.length === 0 ? b.nominalLineToNeutralV : null,
+    lineToLineV: b.nominalLineToLineV !== null && result.phases.length > 1 ? b.nominalLineToLineV : null,
   };
 }

@@ -8,10 +8,15 @@ import type { BoardBaseSpec, ConductorSpec, FeederSpec, LoadBaseSpec, SupplySpec
 import { isThreePhase, phasesOf, systemHasNeutral } from './systemTopology.js';
 import { conductorResistance, tabulatedSizes } from './cableLibrary.js';
 import { readVoltageNotation } from './conventions/voltageNotation.js';
+import { labellerOf, type PhaseLabeller, type PhaseNaming } from './conventions/phaseNames.js';
 import { isPerPhaseLine, lengthOf, materialOf, sizeOf } from './feederModel.js';
+import { conductorSizeHint } from './conductorSizeSpelling.js';
 
-/** A cross-field rule: the problems it finds in a board that passed the schema. Studies add their own (boardFile/). */
-export type BoardRule<T extends BoardBaseSpec = BoardBaseSpec> = (board: T) => InputIssue[];
+/**
+ * A cross-field rule: the problems it finds in a board that passed the schema, its sentences naming
+ * phases in the file's naming (issueNamingOf). Studies add their own (boardFile/).
+ */
+export type BoardRule<T extends BoardBaseSpec = BoardBaseSpec> = (board: T, naming: PhaseNaming) => InputIssue[];
 
 const RATING_FORMS = 'exactly one rating: kW (pf 1 when not given), kW with pf, kVA with pf, A with pf, kW with kvar, or ohms';
 
@@ -43,16 +48,17 @@ function ruleSourceImpedance(board: BoardBaseSpec): InputIssue[] {
   return [];
 }
 
-function ruleEmfPhases(board: BoardBaseSpec): InputIssue[] {
+function ruleEmfPhases(board: BoardBaseSpec, naming: PhaseNaming): InputIssue[] {
   const emf = board.supply.emf;
   if (!emf) return [];
+  const label = labellerOf(naming);
   const phases = phasesOf(board.supply.system);
   const issues: InputIssue[] = [];
   for (const phase of ['A', 'B', 'C'] as const) {
     const given = emf[phase] !== undefined;
     const belongs = phases.includes(phase);
     if (belongs && !given) issues.push(inputIssue('missing', `supply.emf.${phase}`, `an EMF for every phase of a ${board.supply.system} supply ({ V, angleDeg })`));
-    if (!belongs && given) issues.push(inputIssue('not_applicable', `supply.emf.${phase}`, `only phases ${phases.join(', ')} on a ${board.supply.system} supply`, phase));
+    if (!belongs && given) issues.push(inputIssue('not_applicable', `supply.emf.${phase}`, `only phases ${phases.map(label).join(', ')} on a ${board.supply.system} supply`, label(phase)));
   }
   return issues;
 }
@@ -81,7 +87,8 @@ function conductorIssues(conductor: ConductorSpec | undefined, path: string, fee
   if (size && sizes === 1 && !conductorResistance(size, materialOf(conductor))) {
     const field = 'mm2' in size ? 'mm2' : 'awg' in size ? 'awg' : 'kcmil';
     const metal = materialOf(conductor);
-    issues.push(inputIssue('unknown_size', `${path}.${field}`, `a ${metal} size in ${'mm2' in size ? 'IEC 60228' : 'NEC Chapter 9 Table 8'}: ${tabulatedSizes(size, metal).map((k) => k.replace(' kcmil', '')).join(', ')}`, Object.values(size)[0]));
+    const hint = field === 'mm2' ? '' : conductorSizeHint(field, Object.values(size)[0], metal);
+    issues.push(inputIssue('unknown_size', `${path}.${field}`, `a ${metal} size in ${'mm2' in size ? 'IEC 60228' : 'NEC Chapter 9 Table 8'}: ${tabulatedSizes(size, metal).map((k) => k.replace(' kcmil', '')).join(', ')}${hint}`, Object.values(size)[0]));
   }
   if (perLength || ownLength) {
     if (lengthOf(conductor, feeder) === null) issues.push(inputIssue('missing', `${path}.lengthM`, 'the route length (lengthM or lengthFt, here or on the feeder)'));
@@ -90,7 +97,7 @@ function conductorIssues(conductor: ConductorSpec | undefined, path: string, fee
   return issues;
 }
 
-function lineConductorIssues(feeder: FeederSpec | undefined, path: string, system: BoardBaseSpec['supply']['system']): InputIssue[] {
+function lineConductorIssues(feeder: FeederSpec | undefined, path: string, system: BoardBaseSpec['supply']['system'], label: PhaseLabeller): InputIssue[] {
   const line = feeder?.line;
   if (!line) return [];
   if (!isPerPhaseLine(line)) return conductorIssues(line, path, feeder);
@@ -99,37 +106,38 @@ function lineConductorIssues(feeder: FeederSpec | undefined, path: string, syste
   for (const p of ['A', 'B', 'C'] as const) {
     const belongs = phases.includes(p);
     if (belongs && !line[p]) issues.push(inputIssue('missing', `${path}.${p}`, `a conductor for every phase of a ${system} supply`));
-    if (!belongs && line[p]) issues.push(inputIssue('not_applicable', `${path}.${p}`, `only phases ${phases.join(', ')} on a ${system} supply`, p));
+    if (!belongs && line[p]) issues.push(inputIssue('not_applicable', `${path}.${p}`, `only phases ${phases.map(label).join(', ')} on a ${system} supply`, label(p)));
     if (belongs && line[p]) issues.push(...conductorIssues(line[p], `${path}.${p}`, feeder));
   }
   return issues;
 }
 
 /** Checks a feeder; `path` is where it sits (`feeder`, `boards[2].feeder`). */
-export function feederIssues(feeder: FeederSpec | undefined, path: string, system: BoardBaseSpec['supply']['system']): InputIssue[] {
-  const issues = [...lineConductorIssues(feeder, `${path}.line`, system), ...conductorIssues(feeder?.neutral, `${path}.neutral`, feeder)];
+export function feederIssues(feeder: FeederSpec | undefined, path: string, system: BoardBaseSpec['supply']['system'], naming: PhaseNaming): InputIssue[] {
+  const issues = [...lineConductorIssues(feeder, `${path}.line`, system, labellerOf(naming)), ...conductorIssues(feeder?.neutral, `${path}.neutral`, feeder)];
   if (feeder?.lengthM !== undefined && feeder.lengthFt !== undefined) issues.push(inputIssue('conflict', path, 'one length: lengthM or lengthFt', 'both'));
   if (feeder?.neutral && !systemHasNeutral(system))
     issues.push(inputIssue('not_applicable', `${path}.neutral`, 'no neutral conductor on a three-phase-3wire supply', 'a neutral'));
   return issues;
 }
 
-function ruleFeeder(board: BoardBaseSpec): InputIssue[] {
-  return feederIssues(board.feeder, 'feeder', board.supply.system);
+function ruleFeeder(board: BoardBaseSpec, naming: PhaseNaming): InputIssue[] {
+  return feederIssues(board.feeder, 'feeder', board.supply.system, naming);
 }
 
 /** The ways to give a source impedance are exclusive; each has systems it suits. */
-function ruleUnequalSource(board: BoardBaseSpec): InputIssue[] {
+function ruleUnequalSource(board: BoardBaseSpec, naming: PhaseNaming): InputIssue[] {
   const { impedance, transformer, bank, openDelta, zeroSequence, system } = board.supply;
   const issues: InputIssue[] = [];
   const given = [impedance && 'impedance', transformer && 'transformer', bank && 'bank', openDelta && 'openDelta'].filter((x): x is string => !!x);
   if (given.length > 1 && !(given.length === 2 && impedance && transformer)) issues.push(inputIssue('conflict', 'supply', 'one source description: impedance, transformer, bank or openDelta', given.join(' + ')));
   const phases = phasesOf(system);
+  const label = labellerOf(naming);
   const perPhase = (value: Partial<Record<'A' | 'B' | 'C', unknown>>, path: string, what: string) => {
     for (const p of ['A', 'B', 'C'] as const) {
       const belongs = phases.includes(p);
       if (belongs && value[p] === undefined) issues.push(inputIssue('missing', `${path}.${p}`, `${what} for every phase of a ${system} supply`));
-      if (!belongs && value[p] !== undefined) issues.push(inputIssue('not_applicable', `${path}.${p}`, `only phases ${phases.join(', ')} on a ${system} supply`, p));
+      if (!belongs && value[p] !== undefined) issues.push(inputIssue('not_applicable', `${path}.${p}`, `only phases ${phases.map(label).join(', ')} on a ${system} supply`, label(p)));
     }
   };
   if (impedance && !('r' in impedance)) perPhase(impedance, 'supply.impedance', 'an impedance');
@@ -183,7 +191,7 @@ function modelIssues(load: LoadBaseSpec, path: string): InputIssue[] {
   return [];
 }
 
-function connectionIssues(load: LoadBaseSpec, path: string, system: SystemKind): InputIssue[] {
+function connectionIssues(load: LoadBaseSpec, path: string, system: SystemKind, label: PhaseLabeller): InputIssue[] {
   const phases = phasesOf(system);
   const issues: InputIssue[] = [];
   const c = load.connection;
@@ -191,13 +199,13 @@ function connectionIssues(load: LoadBaseSpec, path: string, system: SystemKind):
   const used = threePhase ? ['A', 'B', 'C'] : c.split('-').filter((t) => t !== 'N');
   const missing = used.filter((p) => !phases.includes(p as never));
   if (missing.length) {
-    const accepted = acceptedConnections(system).join(', ');
-    issues.push(inputIssue('unknown_phase', `${path}.connection`, `one of ${accepted} on a ${system} supply`, c));
+    const accepted = acceptedConnections(system).map(label).join(', ');
+    issues.push(inputIssue('unknown_phase', `${path}.connection`, `one of ${accepted} on a ${system} supply`, label(c)));
   } else if (c.endsWith('-N') && !systemHasNeutral(system)) {
-    issues.push(inputIssue('no_neutral', `${path}.connection`, `a line-to-line or three-phase connection: a three-phase-3wire supply has no neutral`, c));
+    issues.push(inputIssue('no_neutral', `${path}.connection`, `a line-to-line or three-phase connection: a three-phase-3wire supply has no neutral`, label(c)));
   }
   if (load.starPoint !== undefined) {
-    if (c !== 'ABC-star') issues.push(inputIssue('not_applicable', `${path}.starPoint`, 'starPoint only on ABC-star loads', load.starPoint));
+    if (c !== 'ABC-star') issues.push(inputIssue('not_applicable', `${path}.starPoint`, `starPoint only on ${label('ABC-star')} loads`, load.starPoint));
     else if (load.starPoint === 'neutral' && !systemHasNeutral(system))
       issues.push(inputIssue('no_neutral', `${path}.starPoint`, 'floating: a three-phase-3wire supply has no neutral', load.starPoint));
   }
@@ -211,12 +219,12 @@ export function linesOfConnection(c: LoadBaseSpec['connection']): 1 | 2 | 3 {
 }
 
 /** A breaker switches every line conductor of its circuit (a 1P+N device counts as 1 pole). */
-function poleIssues(load: LoadBaseSpec, path: string): InputIssue[] {
+function poleIssues(load: LoadBaseSpec, path: string, label: PhaseLabeller): InputIssue[] {
   if (load.poles === undefined) return [];
   const needed = linesOfConnection(load.connection);
   if (load.poles === needed) return [];
   const kind = needed === 1 ? 'a line-to-neutral load' : needed === 2 ? 'a line-to-line load' : 'a three-phase load';
-  return [inputIssue('pole_count', `${path}.poles`, `${needed} pole${needed > 1 ? 's' : ''} for ${kind} (${load.connection}): one per line conductor it uses; a device that also switches the neutral (1P+N, 3P+N) is given by its line poles (${needed})`, load.poles)];
+  return [inputIssue('pole_count', `${path}.poles`, `${needed} pole${needed > 1 ? 's' : ''} for ${kind} (${label(load.connection)}): one per line conductor it uses; a device that also switches the neutral (1P+N, 3P+N) is given by its line poles (${needed})`, load.poles)];
 }
 
 /** The connections a load may use on each system. */
@@ -237,14 +245,15 @@ export function acceptedConnections(system: BoardBaseSpec['supply']['system']): 
  * Load-by-load rules and duplicate names. `loads` may have holes where a load failed the schema
  * (forEach skips them, indices stay the file's); without a valid supply the connection check waits.
  */
-function loadIssues(loads: readonly (LoadBaseSpec | undefined)[], system: SystemKind | null): InputIssue[] {
+function loadIssues(loads: readonly (LoadBaseSpec | undefined)[], system: SystemKind | null, naming: PhaseNaming): InputIssue[] {
   const issues: InputIssue[] = [];
+  const label = labellerOf(naming);
   const names = new Map<string, number>();
   loads.forEach((load, i) => {
     if (load === undefined) return;
     const path = `loads[${i}]`;
-    issues.push(...ratingIssues(load, path), ...modelIssues(load, path), ...poleIssues(load, path));
-    if (system !== null) issues.push(...connectionIssues(load, path, system));
+    issues.push(...ratingIssues(load, path), ...modelIssues(load, path), ...poleIssues(load, path, label));
+    if (system !== null) issues.push(...connectionIssues(load, path, system, label));
     if (load.ohms && load.ohms.r === 0 && load.ohms.x === 0)
       issues.push(inputIssue('out_of_range', `${path}.ohms`, 'a non-zero impedance (r = x = 0 is a short circuit)', 'r = 0, x = 0'));
     const first = names.get(load.name);
@@ -255,8 +264,8 @@ function loadIssues(loads: readonly (LoadBaseSpec | undefined)[], system: System
   return issues;
 }
 
-function ruleLoads(board: BoardBaseSpec): InputIssue[] {
-  return loadIssues(board.loads, board.supply.system);
+function ruleLoads(board: BoardBaseSpec, naming: PhaseNaming): InputIssue[] {
+  return loadIssues(board.loads, board.supply.system, naming);
 }
 
 /** The parts of a board that passed the schema on their own, when the whole did not. */
@@ -272,14 +281,14 @@ export interface BoardParts {
  * The cross-field rules that can still run when the schema failed elsewhere, so schema errors
  * do not hide duplicate names or missing ratings until they are fixed: every problem in one pass.
  */
-export function partialBoardIssues(parts: BoardParts): InputIssue[] {
+export function partialBoardIssues(parts: BoardParts, naming: PhaseNaming): InputIssue[] {
   const issues: InputIssue[] = [];
   if (parts.supply) {
     const board = { supply: parts.supply, feeder: parts.feeder ?? undefined, loads: [] } as unknown as BoardBaseSpec;
-    issues.push(...ruleVoltageGiven(board), ...ruleSourceImpedance(board), ...ruleUnequalSource(board), ...ruleEmfPhases(board));
-    if (parts.feeder !== null) issues.push(...ruleFeeder(board));
+    issues.push(...ruleVoltageGiven(board), ...ruleSourceImpedance(board), ...ruleUnequalSource(board, naming), ...ruleEmfPhases(board, naming));
+    if (parts.feeder !== null) issues.push(...ruleFeeder(board, naming));
   }
-  issues.push(...loadIssues(parts.loads, parts.supply?.system ?? null));
+  issues.push(...loadIssues(parts.loads, parts.supply?.system ?? null, naming));
   return issues;
 }
 

@@ -6,6 +6,7 @@
 import { inputIssue, type InputIssue } from '../errors.js';
 import type { BoardBaseSpec } from './boardSchema.js';
 import type { BoardRule } from './boardRules.js';
+import type { PhaseNaming } from './conventions/phaseNames.js';
 import type { InstallationBaseSpec } from './installationSchema.js';
 import { systemHasNeutral } from './systemTopology.js';
 
@@ -132,17 +133,17 @@ function ruleFeederConductors(spec: InstallationBaseSpec): InputIssue[] {
 /** Each board passes the board rules given (the board's own and the studies'), at its own paths. */
 const ruleBoards =
   <I extends InstallationBaseSpec>(boardRules: readonly BoardRule<BoardOfInstallation<I>>[]) =>
-  (spec: I): InputIssue[] =>
+  (spec: I, naming: PhaseNaming): InputIssue[] =>
     spec.boards.flatMap((_, i) => {
       const own = boardSpecOf(spec, i);
       // Supply rules are reported once, from the first board; the rest are the board's own.
-      return boardRules.flatMap((rule) => rule(own)).flatMap((issue) => {
+      return boardRules.flatMap((rule) => rule(own, naming)).flatMap((issue) => {
         if (issue.path.startsWith('supply')) return i === 0 ? [issue] : [];
         return [moved(issue, `boards[${i}]`)];
       });
     });
 
 /** The installation's rules: one radial tree, then every board against `boardRules`. */
-export function installationRulesWith<I extends InstallationBaseSpec>(boardRules: readonly BoardRule<BoardOfInstallation<I>>[]): readonly ((spec: I) => InputIssue[])[] {
+export function installationRulesWith<I extends InstallationBaseSpec>(boardRules: readonly BoardRule<BoardOfInstallation<I>>[]): readonly ((spec: I, naming: PhaseNaming) => InputIssue[])[] {
   return [ruleTree, ruleFeederConductors, ruleBoards<I>(boardRules)];
 }

@@ -10,8 +10,9 @@ import { eitherFormIssues } from './eitherFormIssues.js';
 import { feederSchema, supplySchema, type BoardBaseSpec, type LoadBaseSpec } from './boardSchema.js';
 import { partialBoardIssues, type BoardRule } from './boardRules.js';
 import { readTradeSpellings } from './conventions/readTradeSpellings.js';
-import { inFileNaming } from './conventions/issueNaming.js';
+import { inFileNaming, issueNamingOf } from './conventions/issueNaming.js';
 import { ONE_SHOT_PARSE } from '../_internal/oneShotParse.js';
+import { withConductorSizeHints } from './conductorSizeSpelling.js';
 
 /** What a board file is checked against: its schema, one load's schema and the rules, in order. */
 export interface BoardFileChecks<T extends BoardBaseSpec> {
@@ -38,13 +39,14 @@ export function validateBoardWith<T extends BoardBaseSpec>(checks: BoardFileChec
   // issues then point back at the file as written.
   const spelt = readTradeSpellings(input);
   const naming = spelt.spellings.naming;
+  const wording = issueNamingOf(naming);
   const parsed = checks.schema.safeParse(spelt.input, ONE_SHOT_PARSE);
-  const shapeIssues = allInputIssues(parsed.success ? [] : eitherFormIssues(parsed.error.issues, spelt.input), spelt.input);
+  const shapeIssues = withConductorSizeHints(allInputIssues(parsed.success ? [] : eitherFormIssues(parsed.error.issues, spelt.input), spelt.input), spelt.input);
   if (parsed.success && shapeIssues.length === 0) {
-    const issues = [...spelt.issues, ...inFileNaming(checks.rules.flatMap((rule) => rule(parsed.data)), naming)];
+    const issues = [...spelt.issues, ...inFileNaming(checks.rules.flatMap((rule) => rule(parsed.data, wording)), naming)];
     return issues.length ? { ok: false, issues } : { ok: true, board: parsed.data };
   }
-  return { ok: false, issues: [...spelt.issues, ...inFileNaming([...shapeIssues, ...partialBoardIssues(boardParts(spelt.input, checks.load))], naming)] };
+  return { ok: false, issues: [...spelt.issues, ...inFileNaming([...shapeIssues, ...partialBoardIssues(boardParts(spelt.input, checks.load), wording)], naming)] };
 }
 
 /** Each part of a board that passes the schema on its own (for the rules that can still run). */

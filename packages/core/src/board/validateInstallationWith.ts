@@ -12,13 +12,15 @@ import type { InstallationBaseSpec } from './installationSchema.js';
 import { validateBoardWith, type BoardFileChecks } from './validateBoardWith.js';
 import { readTradeSpellings } from './conventions/readTradeSpellings.js';
 import { isInstallationInput } from './installationInput.js';
-import { inFileNaming } from './conventions/issueNaming.js';
+import { inFileNaming, issueNamingOf } from './conventions/issueNaming.js';
+import type { PhaseNaming } from './conventions/phaseNames.js';
 import { ONE_SHOT_PARSE } from '../_internal/oneShotParse.js';
+import { withConductorSizeHints } from './conductorSizeSpelling.js';
 
 /** What an installation file is checked against, and how a board file becomes one. */
 export interface InstallationFileChecks<I extends InstallationBaseSpec, B extends BoardBaseSpec> {
   readonly schema: z.ZodType<I>;
-  readonly rules: readonly ((spec: I) => InputIssue[])[];
+  readonly rules: readonly ((spec: I, naming: PhaseNaming) => InputIssue[])[];
   /** A board file is validated as a board, then taken as the installation with that one board. */
   readonly board: BoardFileChecks<B>;
   readonly boardAsInstallation: (board: B) => I;
@@ -55,7 +57,7 @@ export function validateInstallationWith<I extends InstallationBaseSpec, B exten
   const spelt = readTradeSpellings(input);
   const naming = spelt.spellings.naming;
   const parsed = checks.schema.safeParse(spelt.input, ONE_SHOT_PARSE);
-  if (!parsed.success) return { ok: false, issues: [...spelt.issues, ...inFileNaming(inputIssuesFromZod(eitherFormIssues(parsed.error.issues, spelt.input), spelt.input), naming)] };
-  const issues = [...spelt.issues, ...inFileNaming(checks.rules.flatMap((rule) => rule(parsed.data)), naming)];
+  if (!parsed.success) return { ok: false, issues: [...spelt.issues, ...inFileNaming(withConductorSizeHints(inputIssuesFromZod(eitherFormIssues(parsed.error.issues, spelt.input), spelt.input), spelt.input), naming)] };
+  const issues = [...spelt.issues, ...inFileNaming(checks.rules.flatMap((rule) => rule(parsed.data, issueNamingOf(naming))), naming)];
   return issues.length ? { ok: false, issues } : { ok: true, installation: parsed.data };
 }

@@ -26,5 +26,5 @@ export function readWellFormedBoard(input: unknown): BoardSpec | undefined {
   if (spelt.issues.length) return undefined;
   // The board's own fields are a BoardSpec with no study field set.
   const board = wellFormedBoardShape(spelt.input) as BoardSpec | undefined;
-  return board && BOARD_FILE_RULES.every((rule) => rule(board).length === 0) ? board : undefined;
+  return board && BOARD_FILE_RULES.every((rule) => rule(board, 'A/B/C').length === 0) ? board : undefined;
 }

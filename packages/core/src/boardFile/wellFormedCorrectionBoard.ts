@@ -31,5 +31,5 @@ export function readWellFormedCorrectionBoard(input: unknown): BoardSpec | undef
   if (!section.success || allInputIssues([], correction).length) return undefined;
   // The schema's key order: the board's own fields, then the study sections, correction first.
   const spec = { ...board, correction: section.data } as BoardSpec;
-  return BOARD_FILE_RULES.every((rule) => rule(spec).length === 0) ? spec : undefined;
+  return BOARD_FILE_RULES.every((rule) => rule(spec, 'A/B/C').length === 0) ? spec : undefined;
 }

@@ -18,7 +18,7 @@ import { arrangementsFor } from './correctionRules.js';
 import { correctBoard } from './correctBoard.js';
 import { kvarFromSusceptance } from './equipment.js';
 import type { CorrectionReport, CorrectionStatus } from './correctionResult.js';
-import { ARRANGEMENT_NAMES, comparisonWording } from './correctionWording.js';
+import { arrangementNames, comparisonWording } from './correctionWording.js';
 import { balanceWorsening } from './balanceWorsening.js';
 import { assertViableBoard } from '../analysis/viableOperatingPoint.js';
 
@@ -153,17 +153,18 @@ export function compareCorrections(board: Board, spec: unknown): CorrectionCompa
     ? near.reduce((a, b) => (b.figures.lossesKW < a.figures.lossesKW - 1e-12 ? b : a))
     : near.reduce((a, b) => (closeness(b) > closeness(a) ? b : a));
   const others = studied.filter((o) => o !== chosen);
+  const names = arrangementNames(chosen.report.verification.before.board.system);
   const why = comparisonWording.why(
-    ARRANGEMENT_NAMES[chosen.arrangement],
+    names[chosen.arrangement],
     chosen.report.status,
     chosen.figures,
-    others.map((o) => ({ name: ARRANGEMENT_NAMES[o.arrangement], status: o.report.status, cost: o.figures.cost, lossesKW: o.figures.lossesKW })),
+    others.map((o) => ({ name: names[o.arrangement], status: o.report.status, cost: o.figures.cost, lossesKW: o.figures.lossesKW })),
     meetsTarget && near.length > 1,
   );
   // A verdict never hides that an arrangement makes the balance notably worse (see balanceWorsening).
   const worse = [chosen, ...others].flatMap((o) => {
     const changes = balanceWorsening(o.report.verification.before, o.report.verification.after);
-    return changes.length ? [comparisonWording.balanceWorse(ARRANGEMENT_NAMES[o.arrangement], o === chosen, changes)] : [];
+    return changes.length ? [comparisonWording.balanceWorse(names[o.arrangement], o === chosen, changes)] : [];
   });
   const whyAll = worse.length ? `${why}; ${worse.join('; ')}` : why;
   return { outcomes, recommended: chosen.arrangement, meetsTarget, why: whyAll, rule: comparisonWording.rule };

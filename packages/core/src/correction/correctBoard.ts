@@ -19,7 +19,7 @@ import { defaultPractice, selectBankUnits } from './selectBankUnits.js';
 import { verifyCorrection, type VerifyCorrectionOptions } from './verifyCorrection.js';
 import { scaleBoardLoads } from './scaleBoardLoads.js';
 import type { BankSizing, CompensatorSizing, CorrectionReport, CorrectionStatus, CorrectionWarning, SizedEquipment } from './correctionResult.js';
-import { ARRANGEMENT_NAMES, correctionCautions, infeasibleReason, meteringWarning, reportSummary, warningText } from './correctionWording.js';
+import { arrangementNames, correctionCautions, infeasibleReason, meteringWarning, reportSummary, warningText } from './correctionWording.js';
 import { definedOnly } from './_internal/optionSchemas.js';
 import { assertViableBoard } from '../analysis/viableOperatingPoint.js';
 import { CORRECTION_DEFAULTS } from './correctionDefaults.js';
@@ -200,7 +200,7 @@ export function correctBoard(board: Board, spec: unknown): CorrectionReport {
       ? [{ code: 'controller-reads-elsewhere', message: meteringWarning(verification.metering.point, board.name), path: 'target.measuredAt', value: null, threshold: null }]
       : []),
   ];
-  const what = ARRANGEMENT_NAMES[parsed.arrangement];
+  const what = arrangementNames(board.system)[parsed.arrangement];
   const delivered = selection?.deliveredKvar ?? 0;
   const nameplate = selection?.nameplateKvar ?? 0;
   return {

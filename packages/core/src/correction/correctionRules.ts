@@ -8,6 +8,8 @@ import { inputIssue, type InputIssue } from '../errors.js';
 import type { CorrectionSpec } from './correctionSpec.js';
 import { CORRECTION_DEFAULTS } from './correctionDefaults.js';
 import { meteringPointIssues } from './meteringPoint.js';
+import { conventionsOf } from '../board/conventions/boardConventions.js';
+import { labellerOf } from '../board/conventions/phaseNames.js';
 
 type Rule = (spec: CorrectionSpec, board: Board) => InputIssue[];
 
@@ -43,9 +45,10 @@ function rulePerPhaseTargets(spec: CorrectionSpec, board: Board): InputIssue[] {
     return [inputIssue('not_applicable', 'target.perPhase', 'pf alone: a balancing compensator makes every line alike', 'per-phase targets')];
   if (definitionOf(spec) !== 'per-line')
     return [inputIssue('not_applicable', 'target.perPhase', 'per-phase targets only with definition per-line', definitionOf(spec))];
+  const label = labellerOf(conventionsOf(board).phaseNames);
   return (['A', 'B', 'C'] as const)
     .filter((p) => perPhase[p] !== undefined && !board.phases.includes(p))
-    .map((p) => inputIssue('unknown_phase', `target.perPhase.${p}`, `only phases ${board.phases.join(', ')} of this board`, p));
+    .map((p) => inputIssue('unknown_phase', `target.perPhase.${p}`, `only phases ${board.phases.map(label).join(', ')} of this board`, label(p)));
 }
 
 function ruleTargetBounds(spec: CorrectionSpec): InputIssue[] {

@@ -4,7 +4,7 @@
  */
 import type { PhaseLabel } from '../board/conventions/phaseNames.js';
 import type { PowerFactorSense } from '../analysis/boardResult.js';
-import type { TargetDefinition } from './correctionSpec.js';
+import type { Arrangement, TargetDefinition } from './correctionSpec.js';
 
 interface TargetWords {
   readonly definition: TargetDefinition;
@@ -204,7 +204,31 @@ export const reportSummary = {
     `${what}: the target cannot be met with capacitors in this arrangement; the best reachable build is ${bankWords(delivered, nameplate)}`,
 };
 
-export const ARRANGEMENT_NAMES = { 'star-bank': 'star bank', 'delta-bank': 'delta bank', 'balancing-compensator': 'balancing compensator' } as const;
+const THREE_PHASE_NAMES: Readonly<Record<Arrangement, string>> = { 'star-bank': 'star bank', 'delta-bank': 'delta bank', 'balancing-compensator': 'balancing compensator' };
+/**
+ * Star and delta need three phases: on a split-phase or single-phase board the same equipment is
+ * capacitors from a line to the neutral, and across the two lines. Only the words change; the
+ * arrangement's value (`star-bank`, `delta-bank`) is the same on every board.
+ */
+const TWO_LINE_NAMES: Readonly<Record<Arrangement, string>> = { 'star-bank': 'line-to-neutral bank', 'delta-bank': 'line-to-line bank', 'balancing-compensator': 'balancing compensator' };
+const threePhase = (system: string): boolean => system === 'three-phase-4wire' || system === 'three-phase-3wire';
+
+/** What each arrangement is called in sentences and tables on a board of this system. */
+export const arrangementNames = (system: string): Readonly<Record<Arrangement, string>> => (threePhase(system) ? THREE_PHASE_NAMES : TWO_LINE_NAMES);
+
+/** Each arrangement said in full, for a report's heading line, on a board of this system. */
+export const arrangementDescriptions = (system: string): Readonly<Record<Arrangement, string>> =>
+  threePhase(system)
+    ? {
+        'star-bank': 'star-connected capacitor bank (one capacitor per phase)',
+        'delta-bank': 'delta-connected capacitor bank (one capacitor per line pair)',
+        'balancing-compensator': 'balancing compensator (Steinmetz/Gyugyi reactive branches)',
+      }
+    : {
+        'star-bank': 'line-to-neutral capacitor bank (capacitors from each line to the neutral)',
+        'delta-bank': 'line-to-line capacitor bank (capacitors across the two lines)',
+        'balancing-compensator': 'balancing compensator (Steinmetz/Gyugyi reactive branches)',
+      };
 
 const STATUS_SHORT: Record<string, string> = {
   'meets-target': 'meets the target across the capacitance tolerance',

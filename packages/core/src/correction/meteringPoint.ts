@@ -78,14 +78,25 @@ export function meteringPoints(board: Board): string[] {
  */
 export function meteringPointIssues(board: Board, point: string | undefined, path = 'target.measuredAt'): InputIssue[] {
   if (point === undefined) return [];
+  const known = installationOf(board).installation;
+  const all = [known.main.name, ...known.subBoards.map((b) => b.name)];
+  // "origin" is the supply's terminals; a board of that name would make the word name two places,
+  // and either reading would be a silent guess: refused, naming the board to rename.
+  if (point === ORIGIN_POINT && all.includes(ORIGIN_POINT))
+    return [
+      inputIssue(
+        'ambiguous_point',
+        path,
+        `a metering point that names one place: "${ORIGIN_POINT}" is the word for the supply's terminals (where the service cable starts), and a board of this installation is named "${ORIGIN_POINT}" too; rename that board to measure at either`,
+        point,
+      ),
+    ];
   const accepted = meteringPoints(board);
   if (accepted.includes(point)) return [];
   const expected = `${ORIGIN_POINT} (the supply's terminals, where the service cable starts) or a board the equipment's board "${board.name}" is fed through: ${accepted
     .slice(1)
     .map((n) => JSON.stringify(n))
     .join(', ')}`;
-  const known = installationOf(board).installation;
-  const all = [known.main.name, ...known.subBoards.map((b) => b.name)];
   return [inputIssue(all.includes(point) ? 'not_upstream' : 'unknown_board', path, expected, point)];
 }
 

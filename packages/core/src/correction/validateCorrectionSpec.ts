@@ -9,6 +9,8 @@ import { correctionSpecSchema, type CorrectionSpec } from './correctionSpec.js';
 import { CORRECTION_RULES } from './correctionRules.js';
 import { allInputIssues } from '../_internal/zodIssues.js';
 import { ONE_SHOT_PARSE } from '../_internal/oneShotParse.js';
+import { conventionsOf } from '../board/conventions/boardConventions.js';
+import { inFileNaming } from '../board/conventions/issueNaming.js';
 
 export type CorrectionSpecValidation = { ok: true; spec: CorrectionSpec } | { ok: false; issues: InputIssue[] };
 
@@ -19,8 +21,10 @@ export type CorrectionSpecValidation = { ok: true; spec: CorrectionSpec } | { ok
 export function validateCorrectionSpec(input: unknown, board: Board): CorrectionSpecValidation {
   const parsed = correctionSpecSchema.safeParse(input, ONE_SHOT_PARSE);
   const shapeIssues = allInputIssues(parsed.success ? [] : parsed.error.issues, input);
-  if (!parsed.success || shapeIssues.length) return { ok: false, issues: shapeIssues };
-  const issues = CORRECTION_RULES.flatMap((rule) => rule(parsed.data, board));
+  // Paths and lists in the board's naming: a file in L1/L2/L3 reads `target.perPhase.L3`.
+  const naming = conventionsOf(board).phaseNames;
+  if (!parsed.success || shapeIssues.length) return { ok: false, issues: inFileNaming(shapeIssues, naming) };
+  const issues = inFileNaming(CORRECTION_RULES.flatMap((rule) => rule(parsed.data, board)), naming);
   return issues.length ? { ok: false, issues } : { ok: true, spec: parsed.data };
 }
 

@@ -23,7 +23,7 @@ import { parseCorrectionSpec } from '../correction/validateCorrectionSpec.js';
 import { defaultPractice } from '../correction/selectBankUnits.js';
 import { TYPICAL_CATALOGUES, catalogueUnitOf } from '../correction/unitCatalogues.js';
 import type { BankStep, CorrectionReport, CorrectionWarning } from '../correction/correctionResult.js';
-import { ARRANGEMENT_NAMES, CORRECTION_CAUTIONS, reportSummary } from '../correction/correctionWording.js';
+import { arrangementNames, CORRECTION_CAUTIONS, reportSummary } from '../correction/correctionWording.js';
 import type { CapacitorUnitSpec } from '../correction/correctionSpec.js';
 import { resolveHarmonicModel, type BankModel, type HarmonicModel } from './harmonicModel.js';
 import type { HarmonicsBoardSpec } from './harmonicsSpec.js';
@@ -132,7 +132,7 @@ function asDetuned(report: CorrectionReport, p: number, percent: number, plainSe
     detuningFactor: p,
   }));
   const nameplate = selection.nameplateKvar / (1 - p);
-  const what = `${ARRANGEMENT_NAMES[report.arrangement]} with ${percent} % detuning reactors`;
+  const what = `${arrangementNames(report.verification.before.board.system)[report.arrangement]} with ${percent} % detuning reactors`;
   const summary =
     report.status === 'already-meets-target' || report.status === 'no-suitable-units'
       ? reportSummary[report.status](what)
@@ -344,7 +344,7 @@ export function compareWithHarmonics(spec: HarmonicsBoardSpec, board: Board, stu
     passing.find((c) => c.outcome.arrangement === before) ??
     [...passing].sort((a, b) => (a.outcome.report!.status === 'meets-target' ? 0 : 1) - (b.outcome.report!.status === 'meets-target' ? 0 : 1) || a.outcome.figures!.cost - b.outcome.figures!.cost)[0] ??
     null;
-  const name = (a: Arrangement) => ARRANGEMENT_NAMES[a];
+  const name = (a: Arrangement) => arrangementNames(board.system)[a];
   const why = pick
     ? pick.outcome.arrangement === before
       ? `${comparison.why.replace(/\.?$/, '.')} Harmonic check: ${pick.harmonics!.summary}.`

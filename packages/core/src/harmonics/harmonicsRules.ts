@@ -2,6 +2,7 @@
 import { inputIssue, type InputIssue } from '../errors.js';
 import type { BoardBaseSpec } from '../board/boardSchema.js';
 import { systemHasNeutral } from '../board/systemTopology.js';
+import { labellerOf, type PhaseNaming } from '../board/conventions/phaseNames.js';
 import type { HarmonicLoadSpec } from './harmonicsSpec.js';
 
 /** What the rule reads: the supply and the loads with their harmonic fields. */
@@ -12,8 +13,9 @@ type BoardWithHarmonicLoads = Pick<BoardBaseSpec, 'supply'> & { readonly loads: 
  * orders, so a linear form does not apply; a floating star of fixed impedance
  * keeps its own star point, which current sources alone would leave undefined.
  */
-export function ruleHarmonicFields(board: BoardWithHarmonicLoads): InputIssue[] {
+export function ruleHarmonicFields(board: BoardWithHarmonicLoads, naming: PhaseNaming): InputIssue[] {
   const issues: InputIssue[] = [];
+  const label = labellerOf(naming);
   board.loads.forEach((load, i) => {
     const path = `loads[${i}]`;
     if (load.spectrum === undefined || load.spectrum === 'linear') return;
@@ -22,7 +24,7 @@ export function ruleHarmonicFields(board: BoardWithHarmonicLoads): InputIssue[] 
     const floating = load.connection === 'ABC-star' && (load.starPoint === 'floating' || !systemHasNeutral(board.supply.system));
     const fixedImpedance = load.ohms !== undefined || load.model === 'constant-impedance' || load.zip?.z === 1;
     if (floating && fixedImpedance)
-      issues.push(inputIssue('not_applicable', `${path}.spectrum`, 'a spectrum on ABC-delta loads or stars tied to the neutral (describe a floating-star non-linear load as ABC-delta)', 'a floating star'));
+      issues.push(inputIssue('not_applicable', `${path}.spectrum`, `a spectrum on ${label('ABC-delta')} loads or stars tied to the neutral (describe a floating-star non-linear load as ${label('ABC-delta')})`, 'a floating star'));
   });
   return issues;
 }

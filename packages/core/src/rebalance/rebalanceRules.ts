@@ -14,6 +14,9 @@ import { rebalanceSpecSchema, type LoadConditionSpec, type RebalanceSpec } from 
 import { loadOf, type RebalanceTree } from './rebalanceTree.js';
 import type { AimWeights } from './rebalanceObjective.js';
 import { ONE_SHOT_PARSE } from '../_internal/oneShotParse.js';
+import { conventionsOf } from '../board/conventions/boardConventions.js';
+import { labellerOf } from '../board/conventions/phaseNames.js';
+import { inFileNaming } from '../board/conventions/issueNaming.js';
 
 export const LINE_TO_NEUTRAL: readonly ConnectionSpec[] = ['A-N', 'B-N', 'C-N'];
 export const LINE_TO_LINE: readonly ConnectionSpec[] = ['A-B', 'B-C', 'C-A'];
@@ -118,6 +121,7 @@ function pinIssues(spec: RebalanceSpec, tree: RebalanceTree, pinned: Map<number,
       return;
     }
     const onPath = `pinned[${n}].on`;
+    const label = labellerOf(conventionsOf(board).phaseNames);
     const used = entry.on.split('-').filter((t) => t !== 'N');
     const missing = used.filter((p) => !board.phases.includes(p as 'A'));
     if (missing.length || (entry.on.endsWith('-N') && !board.hasNeutral)) {
@@ -125,14 +129,14 @@ function pinIssues(spec: RebalanceSpec, tree: RebalanceTree, pinned: Map<number,
         const lines = c.split('-').filter((t) => t !== 'N');
         return lines.every((p) => board.phases.includes(p as 'A')) && (!c.endsWith('-N') || board.hasNeutral);
       });
-      issues.push(inputIssue('unknown_phase', onPath, `one of ${accepted.join(', ')} on a ${board.system} supply`, entry.on));
+      issues.push(inputIssue('unknown_phase', onPath, `one of ${accepted.map(label).join(', ')} on a ${board.system} supply`, label(entry.on)));
       return;
     }
     const choices = connectionChoices(board, present);
     if (!choices.includes(entry.on)) {
       const kind = LINE_TO_NEUTRAL.includes(present) ? 'line-to-neutral' : LINE_TO_LINE.includes(present) ? 'line-to-line' : 'three-phase';
       issues.push(
-        inputIssue('wrong_kind', onPath, `one of ${choices.join(', ')} (the circuit is ${kind}, wired ${present} now)`, entry.on),
+        inputIssue('wrong_kind', onPath, `one of ${choices.map(label).join(', ')} (the circuit is ${kind}, wired ${label(present)} now)`, label(entry.on)),
       );
       return;
     }
@@ -193,9 +197,10 @@ function capacityIssues(spec: RebalanceSpec, board: Board, capacity: number[], p
     paths.push(typeof given === 'number' ? 'lineCapacityA' : `lineCapacityA.${p}`);
   }
   if (given === undefined || typeof given === 'number') return [];
+  const label = labellerOf(conventionsOf(board).phaseNames);
   return (['A', 'B', 'C'] as const)
     .filter((p) => given[p] !== undefined && !board.phases.includes(p))
-    .map((p) => inputIssue('not_applicable', `lineCapacityA.${p}`, `only lines ${board.phases.join(', ')} on a ${board.system} supply`, given[p]));
+    .map((p) => inputIssue('not_applicable', `lineCapacityA.${p}`, `only lines ${board.phases.map(label).join(', ')} on a ${board.system} supply`, given[p]));
 }
 
 function boardIssues(spec: RebalanceSpec, tree: RebalanceTree, movable: boolean[], measured: number[]): InputIssue[] {
@@ -228,9 +233,9 @@ function boardIssues(spec: RebalanceSpec, tree: RebalanceTree, movable: boolean[
  */
 export function resolveRebalanceSpec(input: unknown, tree: RebalanceTree, context: RebalanceContext = {}): ResolvedRebalance {
   const parsed = rebalanceSpecSchema.safeParse(input ?? {}, ONE_SHOT_PARSE);
-  if (!parsed.success) throw new InputError(inputIssuesFromZod(parsed.error.issues, input ?? {}), 'the rebalancing study is not valid');
-  const spec = parsed.data;
   const board = tree.boards[0]!;
+  if (!parsed.success) throw new InputError(inFileNaming(inputIssuesFromZod(parsed.error.issues, input ?? {}), conventionsOf(board).phaseNames), 'the rebalancing study is not valid');
+  const spec = parsed.data;
   const pinned = new Map<number, ConnectionSpec>();
   const conditions: ResolvedCondition[] = [];
   const capacity: number[] = [];
@@ -256,7 +261,7 @@ export function resolveRebalanceSpec(input: unknown, tree: RebalanceTree, contex
       if ((spec.aim?.[figure] ?? 0) > 0)
         issues.push(inputIssue('not_applicable', `aim.${figure}`, 'unbalance figures only on a three-phase board', spec.aim?.[figure]));
   if (Object.values(aim).every((w) => w === 0)) issues.push(inputIssue('out_of_range', 'aim', 'at least one figure with a weight above 0', 'all 0'));
-  if (issues.length) throw new InputError(issues, 'the rebalancing study is not valid');
+  if (issues.length) throw new InputError(inFileNaming(issues, conventionsOf(board).phaseNames), 'the rebalancing study is not valid');
   return {
     aim,
     combine: spec.combine ?? 'worst',

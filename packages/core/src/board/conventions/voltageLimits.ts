@@ -27,12 +27,12 @@ export const VOLTAGE_LIMIT_PRESETS = {
   'c84-service-a': {
     underPercent: 5,
     overPercent: 5,
-    source: 'ANSI C84.1 Range A, service voltage: ±5 % of nominal (120 V: 114–126 V) (±5 % at service confirmed secondary; exact table from memory)',
+    source: 'ANSI C84.1 Range A, service voltage: ±5 % of nominal (±5 % at service confirmed secondary; exact table from memory)',
   },
   'c84-service-b': {
     underPercent: 8.3,
     overPercent: 5.8,
-    source: 'ANSI C84.1 Range B, service voltage: −8.3 %/+5.8 % of nominal (120 V: 110–127 V) (from memory)',
+    source: 'ANSI C84.1 Range B, service voltage: −8.3 %/+5.8 % of nominal (from memory)',
   },
   'uk-supply': {
     underPercent: 6,
@@ -76,6 +76,26 @@ export function judgeVoltage(limits: VoltageLimits, percent: number): 'under' | 
   if (p < 100 - limits.underPercent) return 'under';
   if (p > 100 + limits.overPercent) return 'over';
   return 'within';
+}
+
+/**
+ * The band in volts about a nominal voltage, each end to 0.1 V: the one rounding every report uses
+ * for it (the table's allowed volts and the limits line alike), so a 208Y/120 board whose nominal
+ * is 208/√3 = 120.1 V reads 114.1–126.1 V in both places.
+ */
+export function bandVolts(limits: Pick<VoltageLimits, 'underPercent' | 'overPercent'>, nominalV: number): { readonly low: string; readonly high: string } {
+  return { low: ((nominalV * (100 - limits.underPercent)) / 100).toFixed(1), high: ((nominalV * (100 + limits.overPercent)) / 100).toFixed(1) };
+}
+
+/** "120.1 V: 114.1–126.1 V line-to-neutral; 208.0 V: 197.6–218.4 V line-to-line": the band at a board's nominal voltages. */
+export function bandVoltsWords(limits: VoltageLimits, nominal: { readonly lineToNeutralV: number | null; readonly lineToLineV: number | null }): string {
+  const at = (v: number, what: string) => {
+    const { low, high } = bandVolts(limits, v);
+    return `${v.toFixed(1)} V: ${low}–${high} V ${what}`;
+  };
+  return [nominal.lineToNeutralV === null ? null : at(nominal.lineToNeutralV, 'line-to-neutral'), nominal.lineToLineV === null ? null : at(nominal.lineToLineV, 'line-to-line')]
+    .filter((x): x is string => x !== null)
+    .join('; ');
 }
 
 /** "±5 %" or "−6/+10 %": the band in a few characters, for tables and verdicts. */

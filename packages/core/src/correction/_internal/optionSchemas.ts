@@ -4,6 +4,8 @@ import type { Board } from '../../board/boardModel.js';
 import { InputError } from '../../errors.js';
 import type { CorrectionSpec } from '../correctionSpec.js';
 import { CORRECTION_RULES } from '../correctionRules.js';
+import { conventionsOf } from '../../board/conventions/boardConventions.js';
+import { inFileNaming } from '../../board/conventions/issueNaming.js';
 
 export const solveOptionsSchema = z
   .strictObject({
@@ -21,7 +23,7 @@ export const maxIterationsSchema = z.int().min(1).max(1000).describe('outer sizi
  * @throws {InputError}
  */
 export function checkRules(spec: CorrectionSpec, board: Board, what: string): void {
-  const issues = CORRECTION_RULES.flatMap((rule) => rule(spec, board));
+  const issues = inFileNaming(CORRECTION_RULES.flatMap((rule) => rule(spec, board)), conventionsOf(board).phaseNames);
   if (issues.length) throw new InputError(issues, `${what} are not valid`);
 }
 

@@ -15,7 +15,8 @@ import type { BoardResult, LoadReading } from '../../analysis/boardResult.js';
 import { fixed } from '../svgText.js';
 import { WARNING_THRESHOLDS } from '../../analysis/boardWarnings.js';
 import { labelIn, type PhaseNaming } from '../../board/conventions/phaseNames.js';
-import { bandWords, judgeVoltage } from '../../board/conventions/voltageLimits.js';
+import { bandVolts, bandVoltsWords, bandWords, judgeVoltage } from '../../board/conventions/voltageLimits.js';
+import { judgedNominals } from '../../analysis/voltageCheck.js';
 import { renderPhasorDiagram } from '../renderPhasorDiagram.js';
 import { renderSequenceDiagram } from '../renderSequenceDiagram.js';
 import type { ReportBlock, ReportSection } from './reportDocument.js';
@@ -144,7 +145,7 @@ export interface VoltageBand {
 /** The band of the board's own voltage limits (`conventions.voltageLimits`), which its warnings and verdict use. */
 export function bandOf(result: BoardResult): VoltageBand {
   const l = result.voltageCheck.limits;
-  return { lowPercent: -l.underPercent, highPercent: l.overPercent, source: `${bandWords(l)} of nominal (${l.preset}): ${l.source}` };
+  return { lowPercent: -l.underPercent, highPercent: l.overPercent, source: `${bandWords(l)} of nominal (${l.preset}), on this board ${bandVoltsWords(l, judgedNominals(result))}: ${l.source}` };
 }
 
 /** The EN 50160 low-voltage supply band (±10 %), the IEC default. */
@@ -168,7 +169,7 @@ export function voltageLimitsTable(result: BoardResult, band: VoltageBand = band
       name,
       fixed(v, 1),
       fixed(percent, 1),
-      `${fixed((nominal * (100 + band.lowPercent)) / 100, 1)} – ${fixed((nominal * (100 + band.highPercent)) / 100, 1)}`,
+      ((volts) => `${volts.low} – ${volts.high}`)(bandVolts(limits, nominal)),
       fixed(margin, 1),
       low ? 'below the band' : high ? 'above the band' : 'within',
     ];

@@ -102,7 +102,7 @@ export function buildBoardReport(input: BoardReportInput): ReportDocument {
     sections.push(correctionSection(correction, comparison));
     const resonance = resonanceSection(correction);
     if (resonance) sections.push(resonance);
-  } else if (comparison) sections.push(correctionComparisonSection(comparison));
+  } else if (comparison) sections.push(correctionComparisonSection(comparison, result.board.system));
   if (input.harmonics) placeSection(sections, harmonicsSection(input.harmonics));
   if (input.handCheck) placeSection(sections, handCheckSection(input.handCheck.result, input.handCheck.triangles, result.conventions.phaseNames));
   for (const extra of input.studySections ?? []) placeSection(sections, extra);

@@ -68,7 +68,7 @@ export function buildInstallationReport(input: InstallationReportInput): ReportD
     const resonance = resonanceSection(correction.report);
     if (resonance) sections.push(atBoard(resonance, correction.board));
     sections.push(installationCorrectionSection(correction.effect));
-  } else if (compared) sections.push(atBoard(correctionComparisonSection(compared.comparison), compared.board));
+  } else if (compared) sections.push(atBoard(correctionComparisonSection(compared.comparison, input.result.installation.system), compared.board));
   const harmonics = input.harmonics ?? null;
   if (harmonics) {
     // The overview takes the place of a resonance estimate; the boards' sections follow it.

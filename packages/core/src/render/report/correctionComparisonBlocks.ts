@@ -5,7 +5,7 @@
  * report recommends what the correction study does.
  */
 import type { CorrectionComparison } from '../../correction/compareCorrections.js';
-import { ARRANGEMENT_NAMES } from '../../correction/correctionWording.js';
+import { arrangementNames } from '../../correction/correctionWording.js';
 import { fixed } from '../svgText.js';
 import type { ReportBlock, ReportSection } from './reportDocument.js';
 
@@ -20,8 +20,10 @@ const VERDICT_WORDS: Readonly<Record<string, string>> = {
 
 const capitalised = (text: string) => text.charAt(0).toUpperCase() + text.slice(1);
 
-export function correctionComparisonBlocks(c: CorrectionComparison): ReportBlock[] {
+/** @param system the board's system: star and delta name nothing on a split-phase or single-phase board */
+export function correctionComparisonBlocks(c: CorrectionComparison, system: string): ReportBlock[] {
   const dash = '—';
+  const names = arrangementNames(system);
   return [
     {
       kind: 'paragraph',
@@ -41,7 +43,7 @@ export function correctionComparisonBlocks(c: CorrectionComparison): ReportBlock
         { label: 'Loss kW after', align: 'right' },
       ],
       rows: c.outcomes.map((o) => {
-        const name = capitalised(ARRANGEMENT_NAMES[o.arrangement]);
+        const name = capitalised(names[o.arrangement]);
         const f = o.figures;
         if (!o.report || !f) return [name, 'not applicable', dash, dash, dash, dash, dash, dash];
         const built = o.report.status !== 'no-suitable-units';
@@ -58,7 +60,7 @@ export function correctionComparisonBlocks(c: CorrectionComparison): ReportBlock
       }),
       note: [
         'kvar delivered at the solved voltage; target PF after: the power factor the target is defined on (per line: the lowest line); losses in the source and feeders.',
-        ...c.outcomes.filter((o) => o.notApplicable).map((o) => `${ARRANGEMENT_NAMES[o.arrangement]}: ${o.notApplicable}.`),
+        ...c.outcomes.filter((o) => o.notApplicable).map((o) => `${names[o.arrangement]}: ${o.notApplicable}.`),
         `Rule: ${c.rule}.`,
       ].join(' '),
     },
@@ -67,6 +69,6 @@ export function correctionComparisonBlocks(c: CorrectionComparison): ReportBlock
 }
 
 /** The section when no arrangement could be studied: the comparison alone. */
-export function correctionComparisonSection(c: CorrectionComparison): ReportSection {
-  return { id: 'correction', title: 'Correction recommendation', blocks: correctionComparisonBlocks(c) };
+export function correctionComparisonSection(c: CorrectionComparison, system: string): ReportSection {
+  return { id: 'correction', title: 'Correction recommendation', blocks: correctionComparisonBlocks(c, system) };
 }

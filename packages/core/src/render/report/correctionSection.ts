@@ -6,7 +6,7 @@
 import type { CorrectionReport } from '../../correction/correctionResult.js';
 import type { CorrectionComparison } from '../../correction/compareCorrections.js';
 import { correctionComparisonBlocks } from './correctionComparisonBlocks.js';
-import { meteringPointWords } from '../../correction/correctionWording.js';
+import { arrangementDescriptions, meteringPointWords } from '../../correction/correctionWording.js';
 import { fixed } from '../svgText.js';
 import { renderPhasorDiagram } from '../renderPhasorDiagram.js';
 import { renderCurrentTriangles } from '../renderCurrentTriangles.js';
@@ -18,6 +18,11 @@ const ARRANGEMENT_WORDS: Readonly<Record<string, string>> = {
   'star-bank': 'capacitor bank in star',
   'delta-bank': 'capacitor bank in delta',
   'balancing-compensator': 'balancing compensator (delta and star branches)',
+};
+/** Where star and delta name nothing (a split-phase or single-phase board), the board's own words. */
+const arrangementWords = (report: CorrectionReport): string => {
+  const system = report.verification.before.board.system;
+  return system === 'three-phase-4wire' || system === 'three-phase-3wire' ? (ARRANGEMENT_WORDS[report.arrangement] ?? report.arrangement) : arrangementDescriptions(system)[report.arrangement];
 };
 
 /** Losses before → after, the change worded by its sign ("saves", "adds") so a negative saving never reads as one. */
@@ -76,12 +81,12 @@ export function correctionSection(report: CorrectionReport, comparison: Correcti
   // Lines as the board file names them (L1 or A).
   const label = labellerOf(v.before.conventions.phaseNames);
   const blocks: ReportBlock[] = [
-    ...(comparison ? correctionComparisonBlocks(comparison) : []),
+    ...(comparison ? correctionComparisonBlocks(comparison, report.verification.before.board.system) : []),
     { kind: 'paragraph', text: report.summary },
     {
       kind: 'facts',
       items: [
-        ['Arrangement', ARRANGEMENT_WORDS[report.arrangement] ?? report.arrangement],
+        ['Arrangement', arrangementWords(report)],
         ['Outcome', report.status.replace(/-/g, ' ')],
         ...meteringFacts(report),
         ['Power factor, vector', `${fixed(v.powerFactor.vector.before, 3)} → ${fixed(v.powerFactor.vector.after, 3)}`],

@@ -1,0 +1,131 @@
+/**
+ * An error in a file written in L1/L2/L3 speaks L1/L2/L3 throughout: the path, the phases and
+ * connections it lists, and the phase term it received (schema word lists, board rules, the
+ * correction and rebalancing studies). A file in A/B/C keeps A/B/C.
+ */
+import { describe, expect, it } from 'vitest';
+import { validateBoard, validateInstallation, type InputIssue } from '@trivar/core';
+import { runCli } from '../../packages/cli/src/program.js';
+import type { CliIo } from '../../packages/cli/src/io.js';
+
+type Mutable = Record<string, any>;
+const splitPhase = (): Mutable => ({
+  name: 'Cabin panel',
+  supply: { system: 'split-phase', voltage: '120/240', frequencyHz: 60, transformer: { kVA: 25, impedancePercent: 2, xOverR: 2 } },
+  loads: [
+    { name: 'water heater', connection: 'L1-L2', kW: 4.5 },
+    { name: 'kitchen', connection: 'L1-N', kW: 1.2, pf: 0.95 },
+    { name: 'laundry', connection: 'L2-N', kW: 0.9, pf: 0.9 },
+  ],
+});
+const edit = (f: (b: Mutable) => void): Mutable => {
+  const b = splitPhase();
+  f(b);
+  return b;
+};
+const issuesOf = (input: unknown): InputIssue[] => {
+  const result = validateBoard(input);
+  expect(result.ok).toBe(false);
+  return result.ok ? [] : result.issues;
+};
+/** A/B/C phase words: a lone capital A, B or C, or one in a connection or line pair. */
+const LETTERED = /\b[ABC]-[ABCN]\b|\bABC-(star|delta)\b|(?<![\w[])[ABC](?=[,)"]|$)/;
+
+describe('issues in a file written in L1/L2/L3', () => {
+  it('a per-phase field on a phase the supply lacks: path, listed phases and the key received', () => {
+    const issues = issuesOf(edit((b) => (b.supply.emf = { L1: { V: 120, angleDeg: 0 }, L2: { V: 120, angleDeg: 180 }, L3: { V: 120, angleDeg: 90 } })));
+    const emf = issues.find((i) => i.path === 'supply.emf.L3')!;
+    expect(emf.message).toBe('supply.emf.L3: expected only phases L1, L2 on a split-phase supply (received "L3")');
+    expect(emf.received).toBe('"L3"');
+  });
+
+  it('a per-phase feeder conductor and source impedance', () => {
+    const z = { r: 0.01, x: 0.01 };
+    const issues = issuesOf(edit((b) => {
+      b.feeder = { line: { L1: z, L2: z, L3: z } };
+      delete b.supply.transformer;
+      b.supply.impedance = { L1: z, L2: z, L3: z };
+    }));
+    expect(issues.map((i) => i.message)).toEqual([
+      'supply.impedance.L3: expected only phases L1, L2 on a split-phase supply (received "L3")',
+      'feeder.line.L3: expected only phases L1, L2 on a split-phase supply (received "L3")',
+    ]);
+  });
+
+  it('a load on a phase the supply lacks', () => {
+    const [issue] = issuesOf(edit((b) => (b.loads[2].connection = 'L3-N')));
+    expect(issue!.message).toBe('loads[2].connection: expected one of L1-N, L2-N, L1-L2 on a split-phase supply (received "L3-N")');
+  });
+
+  it('a connection the schema does not know: its word list in L1/L2/L3', () => {
+    const [issue] = issuesOf(edit((b) => (b.loads[0].connection = 'L1-L1')));
+    expect(issue!.message).toBe(
+      'loads[0].connection: expected one of "L1-N", "L2-N", "L3-N", "L1-L2", "L2-L3", "L3-L1", "L1L2L3-star", "L1L2L3-delta" (received "L1-L1")',
+    );
+  });
+
+  it('a breaker pole count and a star point name the connection in L1/L2/L3', () => {
+    const issues = issuesOf(edit((b) => {
+      b.loads[0].poles = 1;
+      b.loads[1].starPoint = 'floating';
+    }));
+    expect(issues.find((i) => i.path === 'loads[0].poles')!.message).toContain('for a line-to-line load (L1-L2)');
+    expect(issues.find((i) => i.path === 'loads[1].starPoint')!.expected).toBe('starPoint only on L1L2L3-star loads');
+    for (const i of issues) expect(i.message).not.toMatch(LETTERED);
+  });
+
+  it('the same faults in a file written A/B/C stay A/B/C', () => {
+    const lettered = edit((b) => {
+      b.loads = [{ name: 'water heater', connection: 'A-B', kW: 4.5, poles: 1 }, { name: 'laundry', connection: 'C-N', kW: 0.9 }];
+    });
+    const messages = issuesOf(lettered).map((i) => i.message);
+    expect(messages).toContainEqual(expect.stringContaining('for a line-to-line load (A-B)'));
+    expect(messages).toContainEqual('loads[1].connection: expected one of A-N, B-N, A-B on a split-phase supply (received "C-N")');
+  });
+
+  it('an installation file: a sub-board feeder conductor on a missing phase', () => {
+    const z = { r: 0.01, x: 0.01 };
+    const main = splitPhase();
+    const result = validateInstallation({
+      name: 'Cabin and shed',
+      supply: main.supply,
+      boards: [
+        { name: 'panel', loads: main.loads },
+        { name: 'shed', fedFrom: 'panel', feeder: { line: { L1: z, L2: z, L3: z }, neutral: z }, loads: [{ name: 'saw', connection: 'L1-N', kW: 1 }] },
+      ],
+    });
+    expect(result.ok).toBe(false);
+    if (!result.ok) expect(result.issues.map((i) => i.message)).toContain('boards[1].feeder.line.L3: expected only phases L1, L2 on a split-phase supply (received "L3")');
+  });
+});
+
+describe('study sections of a file written in L1/L2/L3', () => {
+  const yaml = (extra: string) =>
+    [
+      'name: Cabin panel',
+      'supply: { system: split-phase, voltage: "120/240", frequencyHz: 60, transformer: { kVA: 25, impedancePercent: 2, xOverR: 2 } }',
+      'loads:',
+      '  - { name: water heater, connection: L1-L2, kW: 4.5, pf: 0.9 }',
+      '  - { name: kitchen, connection: L1-N, kW: 1.2, pf: 0.8 }',
+      '  - { name: laundry, connection: L2-N, kW: 0.9, pf: 0.8 }',
+      extra,
+    ].join('\n');
+  async function errorsOf(argv: string[], text: string): Promise<string> {
+    const err: string[] = [];
+    const io: CliIo = { stdout: () => undefined, stderr: (t) => void err.push(t), readSource: async () => text, isTty: false };
+    expect(await runCli(argv, io)).toBe(3);
+    return err.join('');
+  }
+
+  it('a per-line correction target on a phase the board lacks', async () => {
+    const err = await errorsOf(['correct', 'b.yaml'], yaml('correction: { target: { definition: per-line, perPhase: { L3: 0.95 } } }'));
+    expect(err).toContain('correction.target.perPhase.L3: expected only phases L1, L2 of this board (received "L3")');
+  });
+
+  it('a rebalancing pin and line capacity', async () => {
+    const capacity = await errorsOf(['rebalance', 'b.yaml'], yaml('rebalance: { lineCapacityA: { L1: 100, L3: 100 } }'));
+    expect(capacity).toContain('rebalance.lineCapacityA.L3: expected only lines L1, L2 on a split-phase supply (received 100)');
+    const pin = await errorsOf(['rebalance', 'b.yaml'], yaml('rebalance: { pinned: [ { circuit: water heater, on: L1-N } ] }'));
+    expect(pin).toContain('rebalance.pinned[0].on: expected one of L1-L2 (the circuit is line-to-line, wired L1-L2 now) (received "L1-N")');
+  });
+});

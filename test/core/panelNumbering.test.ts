@@ -1,0 +1,93 @@
+/**
+ * North-American panel numbering (common practice): odd circuits down the left, even down the right,
+ * phases rotating by row. A load whose circuit number and connection disagree gets a warning naming
+ * the load, the number, the phase written and the phase the numbering gives; IEC boards get none.
+ */
+import { describe, expect, it } from 'vitest';
+import fc from 'fast-check';
+import { solveBoard } from '@trivar/core';
+import { circuitNumberMismatches, panelPhasesOf } from '../../packages/core/src/analysis/panelNumbering.js';
+
+type Load = { name: string; circuit?: string; connection: string; kW: number };
+const board = (supply: Record<string, unknown>, loads: Load[], conventions?: Record<string, unknown>) => ({
+  name: 'Diner panel',
+  supply: { frequencyHz: 60, transformer: { kVA: 75, impedancePercent: 3, xOverR: 3 }, ...supply },
+  loads,
+  ...(conventions ? { conventions } : {}),
+});
+const numberingWarnings = (b: unknown) => solveBoard(b).warnings.filter((w) => w.code === 'circuit-number-phase');
+
+describe('the usual panel numbering', () => {
+  it('rows of two circuits, phases A, B, C by row on a three-phase panel, A, B on a split-phase one', () => {
+    expect([1, 2, 3, 4, 5, 6, 7, 8].map((n) => panelPhasesOf(n, 1, 3)[0])).toEqual(['A', 'A', 'B', 'B', 'C', 'C', 'A', 'A']);
+    expect([1, 2, 3, 4, 5, 6].map((n) => panelPhasesOf(n, 1, 2)[0])).toEqual(['A', 'A', 'B', 'B', 'A', 'A']);
+    // A two-pole breaker takes its own row and the next: circuit 5 with 7.
+    expect(panelPhasesOf(5, 2, 3)).toEqual(['C', 'A']);
+    expect(panelPhasesOf(12, 3, 3).sort()).toEqual(['A', 'B', 'C']);
+  });
+
+  it('law: circuits six apart on a three-phase panel (four on a split-phase one) sit on the same phases', () => {
+    fc.assert(
+      fc.property(fc.integer({ min: 1, max: 80 }), fc.integer({ min: 1, max: 3 }), (n, poles) => {
+        expect(panelPhasesOf(n + 6, poles, 3)).toEqual(panelPhasesOf(n, poles, 3));
+        expect(panelPhasesOf(n + 4, Math.min(poles, 2), 2)).toEqual(panelPhasesOf(n, Math.min(poles, 2), 2));
+        // The two circuits of a row share its phase.
+        const odd = 2 * Math.ceil(n / 2) - 1;
+        expect(panelPhasesOf(odd, poles, 3)).toEqual(panelPhasesOf(odd + 1, poles, 3));
+      }),
+    );
+  });
+});
+
+describe('a circuit number that disagrees with its phase', () => {
+  const loads: Load[] = [
+    { name: 'Grill hood', circuit: '1', connection: 'A-N', kW: 1.2 },
+    { name: 'Fryer', circuit: '3', connection: 'A-N', kW: 1.5 },
+    { name: 'Cooler', circuit: '5', connection: 'B-C', kW: 3 },
+    { name: 'Oven', circuit: '7', connection: 'A-B', kW: 4 },
+    { name: 'Mixer', circuit: '12', connection: 'C-N', kW: 0.8 },
+    { name: 'Air handler', circuit: '13', connection: 'ABC-delta', kW: 5 },
+    { name: 'Sign', circuit: '2,4', connection: 'C-N', kW: 0.2 },
+    { name: 'Spare feed', connection: 'B-N', kW: 0.5 },
+  ];
+
+  it('on a 208Y/120 board: a warning for each mismatch, naming load, number, phase written and phase implied', () => {
+    const warnings = numberingWarnings(board({ voltage: '208Y/120' }, loads));
+    expect(warnings.map((w) => w.value)).toEqual([3, 5]);
+    expect(warnings[0]!.message).toBe(
+      'load "Fryer" on circuit 3 is written A-N, but the usual panel numbering (odd circuits down the left, even down the right, phases A, B, C by row) puts circuit 3 on phase B: check the schedule or the connection',
+    );
+    expect(warnings[1]!.message).toContain('load "Cooler" on circuit 5 is written B-C');
+    expect(warnings[1]!.message).toContain('puts circuit 5 (with 7) on C-A');
+    // A warning, not an error: the board solves.
+    expect(solveBoard(board({ voltage: '208Y/120' }, loads)).phases).toHaveLength(3);
+  });
+
+  it('on a split-phase board, phases A, B by row, line-to-line loads fit any number', () => {
+    const split = [
+      { name: 'Range', circuit: '2', connection: 'A-B', kW: 6 },
+      { name: 'Lights', circuit: '5', connection: 'B-N', kW: 0.4 },
+      { name: 'Fridge', circuit: '8', connection: 'B-N', kW: 0.3 },
+    ];
+    const warnings = numberingWarnings(board({ voltage: '120/240' }, split));
+    expect(warnings.map((w) => w.message.match(/^load "([^"]+)" on circuit (\d+) is written (\S+),.* on phase (\w+):/)!.slice(1))).toEqual([['Lights', '5', 'B-N', 'A']]);
+  });
+
+  it('in the file’s naming (L1/L2/L3)', () => {
+    const numbered: Record<string, string> = { A: 'L1', B: 'L2', C: 'L3' };
+    const named = loads.map((l) => ({ ...l, connection: l.connection.replace(/[ABC]/g, (p) => numbered[p]!) }));
+    const warnings = numberingWarnings(board({ voltage: '208Y/120' }, named));
+    expect(warnings[0]!.message).toContain('is written L1-N, but the usual panel numbering (odd circuits down the left, even down the right, phases L1, L2, L3 by row) puts circuit 3 on phase L2');
+  });
+
+  it('never on an IEC board, even with the same numbers', () => {
+    expect(numberingWarnings(board({ voltage: '230/400', frequencyHz: 50 }, loads))).toEqual([]);
+    expect(numberingWarnings(board({ voltage: '208Y/120' }, loads, { region: 'iec' }))).toEqual([]);
+  });
+
+  it('a single-phase board has no rotation to judge', () => {
+    const load = { name: 'x', circuit: '3', connection: 'A-N' } as never;
+    expect(circuitNumberMismatches([load], 1)).toEqual([]);
+    expect(circuitNumberMismatches([load], 3)).toEqual([{ name: 'x', circuit: 3, connection: 'A-N', implied: ['B'], with: [] }]);
+  });
+});
