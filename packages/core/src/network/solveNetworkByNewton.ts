@@ -13,7 +13,7 @@
  * those an ideal EMF fixes (the board's circuit, as `solveNetwork` builds it); the residual is Kirchhoff's current law at each node. The
  * Jacobian is real (|V| in a load's admittance is not complex-differentiable).
  */
-import { abs, add, conj, mul, scale, sub, ZERO, type ComplexValue } from '../complex.js';
+import { abs, add, mul, scale, sub, ZERO, type ComplexValue } from '../complex.js';
 import type { Board, LoadBranch } from '../board/boardModel.js';
 import { REFERENCE, type Circuit } from './circuit.js';
 import { buildInstallationCircuit, type InstallationCircuit } from './installationCircuit.js';
@@ -46,24 +46,6 @@ export interface NewtonOptions {
 export type NewtonOutcome =
   | { readonly converged: true; readonly solution: NetworkSolution }
   | { readonly converged: false; readonly iterations: number };
-
-/** Branch current and its derivatives with respect to the real and imaginary parts of the branch voltage. */
-function branchCurrent(branch: Pick<LoadBranch, 'sNominal' | 'vNominal' | 'zip'>, v: ComplexValue, threshold: number) {
-  const v0 = branch.vNominal;
-  const m = abs(v);
-  const held = m <= threshold * v0;
-  const mc = held ? threshold * v0 : m;
-  const { z, i, p } = branch.zip;
-  const f = z + (i * v0) / mc + (p * v0 * v0) / (mc * mc);
-  const df = held || m === 0 ? 0 : (-i * v0) / (m * m) - (2 * p * v0 * v0) / (m * m * m);
-  const y0 = scale(conj(branch.sNominal), 1 / (v0 * v0));
-  const admittance = scale(y0, f);
-  const current = mul(admittance, v);
-  // ∂I/∂x = Y0·(f + f'·(x/m)·V), ∂I/∂y = Y0·(j·f + f'·(y/m)·V).
-  const dx = mul(y0, add({ re: f, im: 0 }, scale(v, m === 0 ? 0 : (df * v.re) / m)));
-  const dy = mul(y0, add({ re: 0, im: f }, scale(v, m === 0 ? 0 : (df * v.im) / m)));
-  return { current, admittance, dx, dy };
-}
 
 /**
  * Current each source delivers out of its plus terminal at the given voltages: a source
@@ -167,7 +149,7 @@ export interface ReplacedElement {
 /**
  * Newton's iteration on a built circuit (see `solveNetworkByNewton`), from `start`, to node voltages.
  * The voltages, the Jacobian and the residual live on typed arrays, and each stamp is written out
- * with complex.ts's arithmetic in its order (`branchCurrent` for the load branches): the same bits as
+ * with complex.ts's arithmetic in its order (`branchStamp` for the load branches): the same bits as
  * the object-based loop this replaced, without a heap object per product. A neutral-break study
  * runs this some 300 times per board, each `trivar solve` of a board with line-to-neutral loads.
  */
@@ -271,10 +253,14 @@ export function newtonVoltages(circuit: Circuit, vBase: number, start: readonly 
   return { converged: false, iterations: maxIterations };
 }
 
-/** Entries `branchStamp` writes: current (re, im), ∂I/∂x (re, im), ∂I/∂y (re, im). */
-const BRANCH_STAMP = 6;
+/** Entries `branchStamp` writes: current (re, im), ∂I/∂x (re, im), ∂I/∂y (re, im), admittance (re, im). */
+const BRANCH_STAMP = 8;
 
-/** `branchCurrent`'s current and derivatives into `out`, in its arithmetic (see there), at branch voltage (vre, vim). */
+/**
+ * A load branch's current, its derivatives with respect to the real and imaginary parts of the branch
+ * voltage (vre, vim), and the admittance it has there, into `out`: Y = Y0·f(|V|) with Y0 = conj(S)/V0²,
+ * ∂I/∂x = Y0·(f + f'·(x/m)·V), ∂I/∂y = Y0·(j·f + f'·(y/m)·V), each product in complex.ts's order.
+ */
 function branchStamp(branch: Pick<LoadBranch, 'sNominal' | 'vNominal' | 'zip'>, vre: number, vim: number, threshold: number, out: Float64Array): void {
   const v0 = branch.vNominal;
   const m = Math.hypot(vre, vim);
@@ -288,6 +274,8 @@ function branchStamp(branch: Pick<LoadBranch, 'sNominal' | 'vNominal' | 'zip'>, 
   const y0i = -branch.sNominal.im * k0;
   const ar = y0r * f;
   const ai = y0i * f;
+  out[6] = ar;
+  out[7] = ai;
   out[0] = ar * vre - ai * vim;
   out[1] = ar * vim + ai * vre;
   const sx = m === 0 ? 0 : (df * vre) / m;
@@ -315,9 +303,13 @@ export function newtonSolution(
   const voltages = settled.voltages;
   const at = (node: number) => (node === REFERENCE ? ZERO : (voltages[node] ?? ZERO));
   const live = (node: number) => node === REFERENCE || voltages[node] !== null;
-  const admittances = circuit.branches.map((b) =>
-    abs(b.sNominal) === 0 || !live(b.from) || !live(b.to) ? ZERO : branchCurrent(b, sub(at(b.from), at(b.to)), threshold).admittance,
-  );
+  const load = new Float64Array(BRANCH_STAMP);
+  const admittances = circuit.branches.map((b): ComplexValue => {
+    if (abs(b.sNominal) === 0 || !live(b.from) || !live(b.to)) return ZERO;
+    const v = sub(at(b.from), at(b.to));
+    branchStamp(b, v.re, v.im, threshold, load);
+    return { re: load[6]!, im: load[7]! };
+  });
   const state = { nodeVoltages: voltages, admittances, sourceCurrents: sourceCurrentsAt(circuit, voltages, admittances), iterations: settled.iterations, lastChange: settled.lastChange, lowVoltageThreshold: threshold };
   return { ...readInstallationSolution(installation, layout, state).boards[boardIndex]!, board };
 }
