@@ -198,7 +198,7 @@ console.log('4. CLI against a bare `node -e ""` (median wall time, interleaved)'
   ];
   // NODE_EXTRA_CA_CERTS makes every node process read and parse that certificate bundle before it
   // runs anything (on the development machine, /etc/ssl/certs/ca-certificates.crt: about 80 ms and
-  // 410 M instructions of a 41 ms, 93 M instruction bare start). It is not part of a standard start,
+  // 410 M instructions added to a bare start of 41 ms and 93 M instructions). It is not part of a standard start,
   // and it would hide how long trivar takes in the ratio, so every process below runs without it.
   // Where it is set, a bare start with it is timed too, and printed beside for reference.
   const standardEnv = { ...process.env };
