@@ -43,6 +43,14 @@ describe('control characters in names', () => {
       expect(out.loads[0]!.name).not.toMatch(CONTROL);
     }
   });
+  it('forTerminal finds control characters in keys and deep in nested arrays, and only own properties count', () => {
+    const inKey = { rows: [[{ ['k\u001b']: 1 }]] };
+    expect(Object.keys((forTerminal(inKey).rows[0]![0] as object))).toEqual(['k\\e']);
+    const deep = { rows: [[1, null, ['ok', 'bad\u0007']]] };
+    expect(forTerminal(deep)).not.toBe(deep);
+    const inherited = Object.create({ name: 'x\u001by' }) as object;
+    expect(forTerminal({ item: inherited }).item).toBe(inherited);
+  });
   it('escapeControlCharacters leaves ordinary text, accents and units alone', () => {
     expect(escapeControlCharacters('Café ∠V° µF Ω — ok')).toBe('Café ∠V° µF Ω — ok');
   });
