@@ -4,14 +4,6 @@ import { NumericalError } from '../errors.js';
 export function assertFiniteResult<T>(result: T): T {
   // First a plain walk; the path is only spelled out when something is wrong
   // (building path strings for every number was most of the check's cost).
-  const allFinite = (value: unknown): boolean => {
-    if (typeof value === 'number') return Number.isFinite(value);
-    if (Array.isArray(value)) return value.every(allFinite);
-    if (value && typeof value === 'object') {
-      for (const k in value) if (!allFinite((value as Record<string, unknown>)[k])) return false;
-    }
-    return true;
-  };
   if (allFinite(result)) return result;
   const visit = (value: unknown, path: string): void => {
     if (typeof value === 'number') {
@@ -21,4 +13,26 @@ export function assertFiniteResult<T>(result: T): T {
   };
   visit(result, '');
   return result;
+}
+
+/**
+ * True when every number in plain data is finite. Numbers are tested in the loops, not by a call
+ * each: the walk runs once per result, mostly before V8 has optimised it, over tens of thousands of numbers.
+ */
+function allFinite(value: unknown): boolean {
+  if (typeof value === 'number') return Number.isFinite(value);
+  if (value === null || typeof value !== 'object') return true;
+  if (Array.isArray(value)) {
+    for (let i = 0; i < value.length; i++) {
+      const item: unknown = value[i];
+      if (typeof item === 'number' ? !Number.isFinite(item) : typeof item === 'object' && !allFinite(item)) return false;
+    }
+    return true;
+  }
+  const record = value as Record<string, unknown>;
+  for (const key in record) {
+    const item = record[key];
+    if (typeof item === 'number' ? !Number.isFinite(item) : typeof item === 'object' && !allFinite(item)) return false;
+  }
+  return true;
 }
