@@ -4,8 +4,11 @@ import {
   addHandCapacitors,
   buildBoardReport,
   buildInstallationReport,
+  boardHasHarmonicData,
   checkHandFigures,
   compareCorrections,
+  compareWithHarmonics,
+  correctWithHarmonics,
   compareInstallationCorrections,
   correctBoard,
   correctInstallation,
@@ -121,7 +124,7 @@ async function boardDocument(raw: unknown, figures: unknown, options: ReportComm
   const spec = parseBoard(raw);
   const board = normaliseBoard(spec);
   const result = solveBoardModel(board);
-  const { correction, correctionComparison } = options.correction !== false && spec.correction ? boardCorrectionOf(board, spec.correction) : NO_CORRECTION;
+  const { correction, correctionComparison } = options.correction !== false && spec.correction ? boardCorrectionOf(spec, board, spec.correction) : NO_CORRECTION;
   const wantsHarmonics = spec.harmonics !== undefined || spec.loads.some((l) => l.spectrum !== undefined);
   const harmonics = options.harmonics !== false && wantsHarmonics ? studyHarmonics(raw) : null;
   const studySections = options.profileData ? [await profileReportSection(spec, options, io, result.conventions.phaseNames)] : [];
@@ -133,11 +136,14 @@ const NO_CORRECTION = { correction: null, correctionComparison: null } as const;
 
 /**
  * The board file's correction study: the arrangement it names, or (none named) every arrangement
- * compared and the recommended one in full, as `trivar correct` gives them.
+ * compared and the recommended one in full, as `trivar correct` gives them — on a board with harmonic
+ * data each arrangement as the variant (plain or detuned) its harmonic check chooses, as there.
+ * --no-harmonics leaves out the harmonic study's section only, not this choice.
  */
-function boardCorrectionOf(board: Board, section: NonNullable<BoardSpec['correction']>) {
-  if (section.arrangement) return { correction: correctBoard(board, section), correctionComparison: null };
-  const comparison = compareCorrections(board, section);
+function boardCorrectionOf(spec: BoardSpec, board: Board, section: NonNullable<BoardSpec['correction']>) {
+  const harmonic = boardHasHarmonicData(spec);
+  if (section.arrangement) return { correction: harmonic ? correctWithHarmonics(spec, board, section) : correctBoard(board, section), correctionComparison: null };
+  const comparison = harmonic ? compareWithHarmonics(spec, board, section) : compareCorrections(board, section);
   const chosen = comparison.outcomes.find((o) => o.arrangement === comparison.recommended)?.report ?? null;
   return { correction: chosen, correctionComparison: comparison };
 }

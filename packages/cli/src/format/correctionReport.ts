@@ -252,10 +252,7 @@ function balanceLine(r: CorrectionReport): string[] {
 /** The exact solution's negligible branches: left out of the ideal solution above, or kept and why. */
 function smallBranchLines(c: CompensatorSizing, label: PhaseLabeller): string[] {
   const percent = 100 * CORRECTION_DEFAULTS.negligibleBranchFraction;
-  return [true, false].flatMap((leftOut) => {
-    const these = c.smallBranches.filter((b) => b.leftOut === leftOut).map((b) => ({ ...b, branch: label(b.branch) }));
-    return these.length ? [wrapText(smallBranchWords(these, percent, leftOut), '  ', '    ')] : [];
-  });
+  return c.smallBranches.map((b) => wrapText(smallBranchWords({ ...b, branch: label(b.branch) }, percent), '  ', '    '));
 }
 
 function compensatorBlock(c: CompensatorSizing, ideal: CorrectionVerification | null, resizing: CorrectionReport['reactorResizing'], label: PhaseLabeller): string {

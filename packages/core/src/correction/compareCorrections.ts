@@ -139,11 +139,22 @@ export function compareCorrections(board: Board, spec: unknown): CorrectionCompa
       throw error;
     }
   });
-  const studied = outcomes.filter((o): o is ArrangementOutcome & { report: CorrectionReport; figures: ArrangementFigures } => o.report !== null);
-  if (!studied.length) return { outcomes, recommended: null, meetsTarget: false, why: comparisonWording.noneStudied, rule: comparisonWording.rule };
+  return { outcomes, ...recommendArrangement(outcomes) };
+}
+
+/**
+ * The recommendation rule (see the top of this file) applied to outcomes as they are shown, with the
+ * reason in words: also used where each outcome is a harmonic-checked variant, so the reason always
+ * reads the figures beside it. `among` limits the candidates (all studied outcomes by default); the
+ * reason still names every studied one.
+ */
+export function recommendArrangement(outcomes: readonly ArrangementOutcome[], among?: readonly Arrangement[]): Omit<CorrectionComparison, 'outcomes'> {
+  const studied = outcomes.filter((o): o is ArrangementOutcome & { report: CorrectionReport; figures: ArrangementFigures } => o.report !== null && o.figures !== null);
+  const candidates = among === undefined ? studied : studied.filter((o) => among.includes(o.arrangement));
+  if (!candidates.length) return { recommended: null, meetsTarget: false, why: comparisonWording.noneStudied, rule: comparisonWording.rule };
   const rank = (o: (typeof studied)[number]) => STATUS_RANK[o.report.status];
-  const bestRank = Math.min(...studied.map(rank));
-  const pool = studied.filter((o) => rank(o) === bestRank);
+  const bestRank = Math.min(...candidates.map(rank));
+  const pool = candidates.filter((o) => rank(o) === bestRank);
   const meetsTarget = bestRank <= 1;
   const cheapest = Math.min(...pool.map((o) => o.figures.cost));
   // Meeting the target: least cost, then losses. Missing it: the one that comes closest.
@@ -167,5 +178,5 @@ export function compareCorrections(board: Board, spec: unknown): CorrectionCompa
     return changes.length ? [comparisonWording.balanceWorse(names[o.arrangement], o === chosen, changes)] : [];
   });
   const whyAll = worse.length ? `${why}; ${worse.join('; ')}` : why;
-  return { outcomes, recommended: chosen.arrangement, meetsTarget, why: whyAll, rule: comparisonWording.rule };
+  return { recommended: chosen.arrangement, meetsTarget, why: whyAll, rule: comparisonWording.rule };
 }

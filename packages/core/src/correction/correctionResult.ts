@@ -130,16 +130,37 @@ export interface CompensatorSolution extends SizedEquipment {
   readonly lines: readonly LineComparison[];
 }
 
+/** A target a compensator is judged on. */
+export type TargetName = 'power-factor' | 'balance';
+
+/** What a compensator state reads as on the board. */
+export interface CompensatorReading {
+  readonly positiveSequencePf: number | null;
+  /** |I2|/|I1|, %. */
+  readonly negativeSequenceCurrentPercent: number;
+  /** |I_N|/|I1|, %; null on a board without a neutral. */
+  readonly neutralPercent: number | null;
+}
+
 /**
  * A branch of the exact ideal compensator below CORRECTION_DEFAULTS.negligibleBranchFraction of its
- * total kvar: left out (the ideal re-solved without it) when the board meets as many targets without
- * it, otherwise kept because a target needs it.
+ * total kvar: left out when the board re-solved without it, the other branches sized again around it,
+ * still meets every target it met with it; otherwise kept because a target needs it.
  */
 export interface SmallBranch {
   readonly branch: string;
   /** Its output in the exact solution at nominal voltage, kvar (+ capacitor, − reactor). */
   readonly kvarAtNominalV: number;
   readonly leftOut: boolean;
+  /** Leaving it out, as re-solved: the board with it and without it, how far the other branches moved, the targets then missed. */
+  readonly effect: {
+    readonly with: CompensatorReading;
+    readonly without: CompensatorReading;
+    /** The largest change of another branch's output, kvar at nominal voltage. */
+    readonly largestResizeKvar: number;
+    /** Targets met with it and missed without it (empty when it is left out). */
+    readonly missedWithout: readonly TargetName[];
+  };
 }
 
 export interface CompensatorSizing {

@@ -5,6 +5,7 @@
 import type { PhaseLabel } from '../board/conventions/phaseNames.js';
 import type { PowerFactorSense } from '../analysis/boardResult.js';
 import type { Arrangement, TargetDefinition } from './correctionSpec.js';
+import type { SmallBranch, TargetName } from './correctionResult.js';
 
 interface TargetWords {
   readonly definition: TargetDefinition;
@@ -171,13 +172,24 @@ export const compensatorWording = {
   notConverged: (kind: string, iterations: number) => `the ${kind} compensator did not settle in ${iterations} iterations`,
 };
 
-/** Branches of the exact ideal solution below the negligible share (`percent` of the compensator), and what became of them. */
-export function smallBranchWords(small: readonly { branch: PhaseLabel; kvarAtNominalV: number }[], percent: number, leftOut: boolean): string {
-  const list = small.map((b) => `${b.kvarAtNominalV > 0 ? 'a capacitor' : 'a reactor'} of ${Math.abs(b.kvarAtNominalV).toFixed(2)} kvar on ${b.branch}`).join(', ');
-  const them = small.length > 1 ? 'them' : 'it';
-  return leftOut
-    ? `the exact solution also has ${list}, below ${f1(percent)} % of the compensator: what the supply impedance leaves, not a component to buy; left out, and the solution re-solved without ${them}`
-    : `the exact solution has ${list}, below ${f1(percent)} % of the compensator, kept: without ${them} the board meets fewer of the targets (power factor, balance)`;
+const TARGET_WORDS: Record<TargetName, string> = { 'power-factor': 'the power-factor target', balance: 'the balance target' };
+
+/** PF1+, |I2|/|I1| and the neutral with the small branch and without it; a PF that misses the target without it shows the digits that tell the two apart. */
+function effectFigures(e: SmallBranch['effect']): string {
+  const pf = (x: number | null) => (x === null ? 'none' : f3(x));
+  const pfMissed = e.missedWithout.includes('power-factor') && e.with.positiveSequencePf !== null && e.without.positiveSequencePf !== null;
+  const [pfWithout] = pfMissed ? distinctDigits(e.without.positiveSequencePf!, e.with.positiveSequencePf!) : [pf(e.without.positiveSequencePf)];
+  const neutral = e.with.neutralPercent === null || e.without.neutralPercent === null ? '' : `, neutral ${e.with.neutralPercent.toFixed(2)} → ${e.without.neutralPercent.toFixed(2)} % of |I1|`;
+  return `PF1+ ${pf(e.with.positiveSequencePf)} → ${pfWithout}, |I2|/|I1| ${e.with.negativeSequenceCurrentPercent.toFixed(2)} → ${e.without.negativeSequenceCurrentPercent.toFixed(2)} %${neutral}`;
+}
+
+/** A branch of the exact ideal solution below the negligible share (`percent` of the compensator), what became of it and why. */
+export function smallBranchWords(b: Omit<SmallBranch, 'branch'> & { branch: PhaseLabel }, percent: number): string {
+  const what = `${b.kvarAtNominalV > 0 ? 'a capacitor' : 'a reactor'} of ${Math.abs(b.kvarAtNominalV).toFixed(2)} kvar on ${b.branch}, below ${f1(percent)} % of the compensator`;
+  const without = `without it (the other branches re-sized by at most ${b.effect.largestResizeKvar.toFixed(2)} kvar, the board re-solved)`;
+  return b.leftOut
+    ? `the exact solution also has ${what}: left out, because ${without} every target it met is still met — ${effectFigures(b.effect)}`
+    : `the exact solution has ${what}, kept: ${without} the board misses ${b.effect.missedWithout.map((t) => TARGET_WORDS[t]).join(' and ')} — ${effectFigures(b.effect)}`;
 }
 
 export const selectionWording = {

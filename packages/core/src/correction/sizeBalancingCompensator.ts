@@ -14,7 +14,7 @@ import { CORRECTION_DEFAULTS } from './correctionDefaults.js';
 import { checkTarget, resolveTarget, type ResolvedTarget } from './correctionTarget.js';
 import { lineBands } from './_internal/lineBands.js';
 import { deltaSlots, starSlots } from './equipment.js';
-import type { CompensatorSizing, CompensatorSolution, CorrectionWarning } from './correctionResult.js';
+import type { CompensatorSizing, CompensatorSolution, CorrectionWarning, TargetName } from './correctionResult.js';
 import { compensatorWording, infeasibleReason, warningText } from './correctionWording.js';
 import { checkRules, definedOnly, maxIterationsSchema, solveOptionsSchema } from './_internal/optionSchemas.js';
 import { parseOptions } from '../_internal/zodIssues.js';
@@ -149,10 +149,16 @@ export function sizeBalancingCompensator(board: Board, options?: CompensatorOpti
 
   const ideal = solveIdealCompensator(probe, bases, opts.maxIterations);
   if (!ideal.converged) warn('not-converged', compensatorWording.notConverged('ideal', ideal.iterations));
-  // Targets met (the PF target, the balance target): more is better.
-  const targetsMet = (state: ProbeState) => Number(checkTarget(state.result, target, start.result).met) + Number(checkBalance(state.result, opts.balance).met);
+  const targetsMet = (state: ProbeState): TargetName[] => [
+    ...(checkTarget(state.result, target, start.result).met ? (['power-factor'] as const) : []),
+    ...(checkBalance(state.result, opts.balance).met ? (['balance'] as const) : []),
+  ];
+  const reading = (state: ProbeState) => {
+    const balance = checkBalance(state.result, opts.balance);
+    return { positiveSequencePf: state.result.powerFactor.positiveSequence?.pf ?? null, negativeSequenceCurrentPercent: balance.negativeSequencePercent, neutralPercent: balance.neutralPercent };
+  };
   // The exact solution's negligible branches are left out here, once, so every table and the build agree.
-  const idealBuilt = leaveOutNegligible(probe, ideal.state, targetsMet);
+  const idealBuilt = leaveOutNegligible(probe, ideal.state, { bases, maxIterations: opts.maxIterations, targetsMet, reading });
   const lowerTan = lineBands(target, start, 'limit').map((b) => b.low);
   const capOnly = solveCapacitorOnlyCompensator(probe, bases, {
     weights,

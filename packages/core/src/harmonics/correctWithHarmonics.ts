@@ -17,7 +17,7 @@
  */
 import type { Board, BoardLoad, Terminal } from '../board/boardModel.js';
 import { correctBoard } from '../correction/correctBoard.js';
-import { compareCorrections, figuresOf, specFor, type CorrectionComparison } from '../correction/compareCorrections.js';
+import { compareCorrections, figuresOf, recommendArrangement, specFor, type CorrectionComparison } from '../correction/compareCorrections.js';
 import type { Arrangement } from '../correction/correctionSpec.js';
 import { parseCorrectionSpec } from '../correction/validateCorrectionSpec.js';
 import { defaultPractice } from '../correction/selectBankUnits.js';
@@ -31,6 +31,8 @@ import { analyseHarmonics } from './studyHarmonics.js';
 import { DETUNING_FACTORS_PERCENT, capacitorVoltage, tuningOrder } from './detuning.js';
 import { dutyRatio } from './capacitorDuty.js';
 import type { HarmonicsReport } from './harmonicsResult.js';
+
+const capitalised = (text: string) => text.charAt(0).toUpperCase() + text.slice(1);
 
 export interface CorrectionVariant {
   /** `plain`, or `detuned 7 %`… */
@@ -325,9 +327,9 @@ export type HarmonicComparison = CorrectionComparison & {
 /**
  * `compareCorrections` on a board with harmonic data: each arrangement's bank
  * is checked with its detuned variants (`correctWithHarmonics`); the outcome
- * of each arrangement becomes its chosen variant, and the recommendation goes
- * to an arrangement whose chosen variant passes — the comparison's own pick
- * when it does, else the passing one of best verdict and least cost.
+ * of each arrangement becomes its chosen variant, and the comparison's rule
+ * (verdict, then least cost, then losses) picks among the arrangements whose
+ * chosen variant passes, on the figures of those variants as shown.
  */
 export function compareWithHarmonics(spec: HarmonicsBoardSpec, board: Board, study: unknown): HarmonicComparison {
   const comparison = compareCorrections(board, study);
@@ -338,23 +340,25 @@ export function compareWithHarmonics(spec: HarmonicsBoardSpec, board: Board, stu
     const { harmonics, ...plainReport } = report;
     return { outcome: { ...o, report: plainReport, figures: figuresOf(plainReport) }, harmonics };
   });
-  const passing = checked.filter((c) => c.harmonics?.chosen && c.outcome.report && ['meets-target', 'meets-target-at-nominal-capacitance', 'already-meets-target'].includes(c.outcome.report.status));
+  const outcomes = checked.map((c) => c.outcome);
+  // The rule applied to the variants as shown, among the arrangements with a variant that passes
+  // (it meets the target by definition): the reason then reads the figures shown beside it.
+  const passing = checked.filter((c) => c.harmonics?.chosen);
+  const choice = recommendArrangement(outcomes, passing.map((c) => c.outcome.arrangement));
+  const pick = passing.find((c) => c.outcome.arrangement === choice.recommended) ?? null;
   const before = comparison.recommended;
-  const pick =
-    passing.find((c) => c.outcome.arrangement === before) ??
-    [...passing].sort((a, b) => (a.outcome.report!.status === 'meets-target' ? 0 : 1) - (b.outcome.report!.status === 'meets-target' ? 0 : 1) || a.outcome.figures!.cost - b.outcome.figures!.cost)[0] ??
-    null;
   const name = (a: Arrangement) => arrangementNames(board.system)[a];
+  // An arrangement that meets the target as plain yet fails the harmonic check in every variant is said so.
+  const failing = checked.filter((c) => c.harmonics && !c.harmonics.chosen && ['meets-target', 'meets-target-at-nominal-capacitance'].includes(c.outcome.report!.status)).map((c) => name(c.outcome.arrangement));
+  const failingWords = failing.length ? ` ${capitalised(failing.join(' and '))} ${failing.length > 1 ? 'fail' : 'fails'} the harmonic check in every variant.` : '';
   const why = pick
-    ? pick.outcome.arrangement === before
-      ? `${comparison.why.replace(/\.?$/, '.')} Harmonic check: ${pick.harmonics!.summary}.`
-      : `${name(pick.outcome.arrangement)} with ${pick.harmonics!.chosen}: the comparison's first choice (${before ? name(before) : 'none'}) fails the harmonic check in every variant; ${pick.harmonics!.summary}.`
+    ? `${choice.why.replace(/\.?$/, '.')}${failingWords} Harmonic check of the ${name(pick.outcome.arrangement)}: ${pick.harmonics!.summary}.`
     : `${comparison.why.replace(/\.?$/, '.')} But no arrangement passes the harmonic check in any variant: a tuned filter or a specialist harmonic study is needed.`;
   return {
     ...comparison,
-    outcomes: checked.map((c) => c.outcome),
+    outcomes,
     recommended: pick?.outcome.arrangement ?? before,
-    meetsTarget: pick !== null && comparison.meetsTarget,
+    meetsTarget: pick !== null && choice.meetsTarget,
     why,
     harmonics: {
       arrangements: checked.flatMap((c) => (c.harmonics ? [{ arrangement: c.outcome.arrangement, chosen: c.harmonics.chosen, summary: c.harmonics.summary, variants: c.harmonics.variants }] : [])),

@@ -2,9 +2,12 @@
  * The arrangements compared, for a report whose correction study names no
  * arrangement: every arrangement that fits the board side by side, the one
  * recommended and why — the same comparison `compareCorrections` makes, so the
- * report recommends what the correction study does.
+ * report recommends what the correction study does. On a board with harmonic
+ * data (`compareWithHarmonics`) each arrangement is the variant, plain or
+ * detuned, that its harmonic check chooses, and a column says which.
  */
 import type { CorrectionComparison } from '../../correction/compareCorrections.js';
+import type { HarmonicComparison } from '../../harmonics/correctWithHarmonics.js';
 import { arrangementNames } from '../../correction/correctionWording.js';
 import { fixed } from '../svgText.js';
 import type { ReportBlock, ReportSection } from './reportDocument.js';
@@ -19,21 +22,31 @@ const VERDICT_WORDS: Readonly<Record<string, string>> = {
 };
 
 const capitalised = (text: string) => text.charAt(0).toUpperCase() + text.slice(1);
+/** A reason may end its own sentence (the harmonic check's does); the paragraph adds the stop. */
+const withoutStop = (text: string) => text.replace(/\.$/, '');
 
 /** @param system the board's system: star and delta name nothing on a split-phase or single-phase board */
-export function correctionComparisonBlocks(c: CorrectionComparison, system: string): ReportBlock[] {
+export function correctionComparisonBlocks(c: CorrectionComparison | HarmonicComparison, system: string): ReportBlock[] {
   const dash = '—';
   const names = arrangementNames(system);
+  const checked = 'harmonics' in c ? c.harmonics : null;
+  // The variant shown for an arrangement: the one its harmonic check chose, else the plain bank (none passes).
+  const variantOf = (o: CorrectionComparison['outcomes'][number]) => {
+    const a = checked?.arrangements.find((x) => x.arrangement === o.arrangement);
+    return !o.report || !a ? dash : (a.chosen ?? 'plain (no variant passes)');
+  };
+  const withVariant = (row: string[], o: CorrectionComparison['outcomes'][number]) => (checked ? [row[0]!, variantOf(o), ...row.slice(1)] : row);
   return [
     {
       kind: 'paragraph',
-      text: 'The correction study names no arrangement, so every arrangement that fits the board was sized, built from units and verified by re-solving the board, and one is recommended.',
+      text: `The correction study names no arrangement, so every arrangement that fits the board was sized, built from units and verified by re-solving the board, and one is recommended.${checked ? ' The board has harmonic data, so each arrangement was also built as detuned banks and checked for resonance and capacitor duty on its harmonics, as trivar correct does; each is shown as the bank its check chooses.' : ''}`,
     },
     {
       kind: 'table',
       caption: 'Arrangements compared',
       columns: [
         { label: 'Arrangement' },
+        ...(checked ? [{ label: 'Bank' }] : []),
         { label: 'Verdict' },
         { label: 'kvar delivered', align: 'right' },
         { label: 'Reactor kvar', align: 'right' },
@@ -45,9 +58,9 @@ export function correctionComparisonBlocks(c: CorrectionComparison, system: stri
       rows: c.outcomes.map((o) => {
         const name = capitalised(names[o.arrangement]);
         const f = o.figures;
-        if (!o.report || !f) return [name, 'not applicable', dash, dash, dash, dash, dash, dash];
+        if (!o.report || !f) return withVariant([name, 'not applicable', dash, dash, dash, dash, dash, dash], o);
         const built = o.report.status !== 'no-suitable-units';
-        return [
+        return withVariant([
           name,
           VERDICT_WORDS[o.report.status] ?? o.report.status,
           built ? fixed(f.deliveredKvar, 1) : dash,
@@ -56,15 +69,16 @@ export function correctionComparisonBlocks(c: CorrectionComparison, system: stri
           built ? String(f.units) : dash,
           f.targetPfAfter === null ? dash : fixed(f.targetPfAfter, 3),
           fixed(f.lossesKW, 3),
-        ];
+        ], o);
       }),
       note: [
         'kvar delivered at the solved voltage; target PF after: the power factor the target is defined on (per line: the lowest line); losses in the source and feeders.',
         ...c.outcomes.filter((o) => o.notApplicable).map((o) => `${names[o.arrangement]}: ${o.notApplicable}.`),
+        ...(checked ? [`Bank: ${checked.rule}.`] : []),
         `Rule: ${c.rule}.`,
       ].join(' '),
     },
-    { kind: 'paragraph', text: c.recommended === null ? `${capitalised(c.why)}.` : `Recommended — ${c.why}. The recommended arrangement follows in full.` },
+    { kind: 'paragraph', text: c.recommended === null ? `${capitalised(withoutStop(c.why))}.` : `Recommended — ${withoutStop(c.why)}. The recommended arrangement follows in full.` },
   ];
 }
 

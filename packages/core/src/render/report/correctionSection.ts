@@ -5,6 +5,7 @@
  */
 import type { CorrectionReport } from '../../correction/correctionResult.js';
 import type { CorrectionComparison } from '../../correction/compareCorrections.js';
+import type { HarmonicCorrectionReport } from '../../harmonics/correctWithHarmonics.js';
 import { correctionComparisonBlocks } from './correctionComparisonBlocks.js';
 import { arrangementDescriptions, meteringPointWords } from '../../correction/correctionWording.js';
 import { fixed } from '../svgText.js';
@@ -83,6 +84,8 @@ export function correctionSection(report: CorrectionReport, comparison: Correcti
   const blocks: ReportBlock[] = [
     ...(comparison ? correctionComparisonBlocks(comparison, report.verification.before.board.system) : []),
     { kind: 'paragraph', text: report.summary },
+    // A study on a board with harmonic data chose plain or detuned by its harmonic check (the comparison's reason says so already).
+    ...(!comparison && 'harmonics' in report ? [{ kind: 'paragraph' as const, text: `Harmonic check: ${(report as HarmonicCorrectionReport).harmonics.summary}.` }] : []),
     {
       kind: 'facts',
       items: [
