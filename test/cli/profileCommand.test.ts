@@ -57,7 +57,7 @@ describe('trivar profile', () => {
     expect(text).toMatch(/PF band 0\.97 to 0\.995 lagging/);
   });
 
-  it('--correction-bank: clear errors beside --bank or --pf, and on a board file without a correction arrangement', () => {
+  it('--correction-bank: clear errors beside --bank or --pf, and on a board file without a correction section', () => {
     const both = runTrivar(['profile', BOARD, '--data', data, '--bank', '--correction-bank']);
     expect(both.code).toBe(2);
     expect(both.stderr).toMatch(/either --bank .* or --correction-bank/);
@@ -66,7 +66,7 @@ describe('trivar profile', () => {
     writeFileSync(bare, readFileSync(`${ROOT}${BOARD}`, 'utf8').replace(/^correction:\n(?: .*\n)+/m, ''));
     const none = runTrivar(['profile', bare, '--data', data, '--correction-bank']);
     expect(none.code).toBe(2);
-    expect(none.stderr).toMatch(/--correction-bank: the board file has no correction section naming an arrangement/);
+    expect(none.stderr).toMatch(/--correction-bank: the board file has no correction section, so there is no correction study to take a bank from/);
     expect(none.stderr).not.toMatch(/at .*\.js:\d+/);
   });
 

@@ -115,7 +115,7 @@ describe('trivar profile on an installation', () => {
     expect(bank.source).toBe('correction-study');
     expect(bank.steps.map((s: { step: number }) => s.step)).toEqual(selection.steps.map((s: { output: number }) => s.output));
     expect(runTrivar(['profile', file, '--data', `${ROOT}${DATA}`, '--correction-bank', '--pf', '0.9']).stderr).toContain('--pf sets the target');
-    expect(runTrivar(['profile', FILE, '--data', DATA, '--correction-bank']).stderr).toContain('no correction section naming an arrangement');
+    expect(runTrivar(['profile', FILE, '--data', DATA, '--correction-bank']).stderr).toContain('--correction-bank: the installation file has no correction section, so there is no correction study to take a bank from');
   });
 
   it('the controller reads where the target says: the correction target\'s measuredAt, or profile.bank.measuredAt', () => {

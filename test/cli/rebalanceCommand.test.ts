@@ -121,16 +121,44 @@ describe('trivar rebalance (built binary)', () => {
     expect(report.solvedScore.after).toBeLessThanOrEqual(report.solvedScore.before);
   });
 
+  it('options that contradict each other or the file are a usage error (exit 2) naming both, before any study runs', () => {
+    const refused = (args: string[], input?: string) => {
+      const r = runTrivar(['rebalance', ...args], input);
+      expect(r.code).toBe(2);
+      expect(r.stdout).toBe('');
+      expect(r.stderr.split('\n').filter((l) => l !== '')).toHaveLength(1);
+      return r.stderr;
+    };
+    // Both set the load conditions: before, --data won and --scenarios was dropped without a word.
+    expect(refused([flats, '--scenarios', '--data', 'no-such.csv'])).toContain('--scenarios and --data both set the load conditions');
+    // Options of interval data, with none given: before, left unused.
+    expect(refused([flats, '--spread', '3'])).toContain('--spread picks typical intervals from the interval data: give --data <csv> too');
+    expect(refused([flats, '--time-zone', 'Europe/Dublin', '--scenarios'])).toContain('--time-zone with --scenarios:');
+    // The fewest-moves choice prints the table --no-table asks to skip: before, the table came out anyway.
+    expect(refused([flats, '--near-best', '5', '--no-table'])).toContain('--no-table with --near-best:');
+    const nearBestInFile = readFileSync(`${ROOT}${flats}`, 'utf8').replace('lineCapacityA: 160', 'lineCapacityA: 160\n  nearBestPercent: 5');
+    expect(refused(['-', '--no-table'], nearBestInFile)).toContain('--no-table with rebalance.nearBestPercent in the board file: ');
+    // A move limit below the moves the file's pins force: both named.
+    const forced = readFileSync(`${ROOT}${flats}`, 'utf8').replace('pinned: [Fire alarm panel]', 'pinned: [Fire alarm panel, { circuit: Flat 1, on: B-N }]');
+    expect(refused(['-', '--move-limit', '0'], forced)).toContain('--move-limit, with rebalance.pinned in the board file: expected at least 1: that many circuits are pinned');
+    // A figure the board cannot have.
+    expect(refused(['examples/pine-hollow-cabin.yaml', '--aim', 'current-unbalance'])).toContain('--aim: expected unbalance figures only on a three-phase board');
+  });
+
   it('refuses to write over its input', () => {
     const r = runTrivar(['rebalance', flats, '--write', flats]);
     expect(r.code).toBe(2);
     expect(r.stderr).toMatch(/--write .*board file being read/);
   });
 
-  it('bad study values name the field in the board file', () => {
+  it('bad study values: an option\'s is the command line\'s (exit 2, naming the option), the file\'s names its field (exit 3)', () => {
     const r = runTrivar(['rebalance', flats, '--move-limit', '-1']);
-    expect(r.code).toBe(3);
-    expect(r.stderr).toMatch(/rebalance\.moveLimit: expected a number >= 0 \(received -1\)/);
+    expect(r.code).toBe(2);
+    expect(r.stderr).toContain('(options given: --move-limit -1): --move-limit: expected a number >= 0 (received -1)');
+    const text = readFileSync(`${ROOT}${flats}`, 'utf8').replace('lineCapacityA: 160', 'lineCapacityA: 160\n  moveLimit: -1');
+    const file = runTrivar(['rebalance', '-', '--near-best', '2'], text);
+    expect(file.code).toBe(3);
+    expect(file.stderr).toMatch(/rebalance\.moveLimit: expected a number >= 0 \(received -1\)/);
     const aim = runTrivar(['rebalance', flats, '--aim', 'neutrall']);
     expect(aim.code).toBe(2);
     expect(aim.stderr).toMatch(/largest-line, neutral/);

@@ -129,3 +129,53 @@ describe('study sections of a file written in L1/L2/L3', () => {
     expect(pin).toContain('rebalance.pinned[0].on: expected one of L1-L2 (the circuit is line-to-line, wired L1-L2 now) (received "L1-N")');
   });
 });
+
+describe('names the user gave stay as written in a file in L1/L2/L3', () => {
+  // Loads literally named A, B and C: only phase references turn into L1/L2/L3, never these names.
+  const lines = (extra: string[]) =>
+    [
+      'name: Elm Row shop',
+      'supply: { system: three-phase-4wire, voltage: { lineToLine: 400 }, frequencyHz: 50 }',
+      'loads:',
+      '  - { name: A, connection: L1-N, kW: 3.0, pf: 0.9 }',
+      '  - { name: B, connection: L1-N, kW: 2.0, pf: 0.9 }',
+      '  - { name: C, connection: L2-N, kW: 1.0, pf: 0.9 }',
+      ...extra,
+    ].join('\n');
+  async function errorsOf(argv: string[], text: string): Promise<string> {
+    const err: string[] = [];
+    const io: CliIo = { stdout: () => undefined, stderr: (t) => void err.push(t), readSource: async () => text, isTty: false };
+    expect(await runCli(argv, io)).toBe(3);
+    return err.join('');
+  }
+
+  it('a rebalancing condition keyed by a circuit named B', async () => {
+    const err = await errorsOf(['rebalance', 'b.yaml'], lines(['rebalance:', '  conditions: [ { name: evening, circuits: { B: -0.5, C: 1 } } ]']));
+    expect(err).toContain('rebalance.conditions[0].circuits.B: expected a number >= 0 (received -0.5)');
+    expect(err).not.toMatch(/circuits\.L\d/);
+  });
+
+  it('a scenario and a group keyed by a load named C or B', async () => {
+    const err = await errorsOf(['solve', 'b.yaml'], lines(['profile:', '  groups: { B: [] }', '  scenarios: [ { name: evening, hours: 100, loads: { C: 20 } } ]']));
+    expect(err).toContain('profile.scenarios[0].loads.C: expected a number <= 10 (received 20)');
+    expect(err).toMatch(/profile\.groups\.B: /);
+    expect(err).not.toMatch(/loads\.L3|groups\.L2/);
+  });
+
+  it('a light-load fraction keyed by a load named A', async () => {
+    const err = await errorsOf(['correct', 'b.yaml'], lines(['correction: { arrangement: delta-bank, lightLoad: { fraction: 0.3, perLoad: { A: 2 } } }']));
+    expect(err).toContain('correction.lightLoad.perLoad.A: expected a number <= 1 (received 2)');
+  });
+
+  it("a load's current field A is a field, not phase L1", () => {
+    const text = lines([]).replace('kW: 3.0', 'A: -3');
+    const err = errorsOf(['solve', 'b.yaml'], text);
+    return expect(err).resolves.toContain('loads[0].A: expected a number above 0 and at most 100,000 A (received -3)');
+  });
+
+  it('phase keys in the same file are still in L1/L2/L3', async () => {
+    const err = await errorsOf(['rebalance', 'b.yaml'], lines(['rebalance:', '  lineCapacityA: { L2: -1 }', '  conditions: [ { name: evening, circuits: { B: -0.5 } } ]']));
+    expect(err).toMatch(/rebalance\.lineCapacityA\.L2: /);
+    expect(err).toContain('rebalance.conditions[0].circuits.B: ');
+  });
+});

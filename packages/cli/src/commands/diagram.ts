@@ -1,7 +1,6 @@
 /** `trivar diagram`: draw a solved board's phasors, sequence components or current triangles, or an installation's one-line drawing, as SVG. */
 import {
-  correctBoard,
-  correctInstallation,
+  arrangementNames,
   isInstallationInput,
   normaliseBoard,
   normaliseInstallation,
@@ -20,6 +19,7 @@ import type { CliIo } from '../io.js';
 import { UsageError } from '../exitCodes.js';
 import { assertNotInput, writeOutputFile } from '../outputFiles.js';
 import { boardOptionOnBoardFile, chooseBoard } from './chooseBoard.js';
+import { boardCorrection, installationCorrection, type FileCorrection } from './fileCorrectionStudy.js';
 
 import type { DiagramView } from './diagramViews.js';
 export { DIAGRAM_VIEWS, type DiagramView } from './diagramViews.js';
@@ -44,20 +44,39 @@ function drawBoard(raw: unknown, view: DiagramView, options: DiagramCommandOptio
   const spec = parseBoard(raw);
   const board = normaliseBoard(spec);
   if (view === 'triangles' || options.withCorrection) {
-    if (!spec.correction?.arrangement) throw new UsageError(needsStudy(view));
-    const v = correctBoard(board, spec.correction).verification;
-    return drawCorrected(v.before, v.after, view);
+    if (!spec.correction) throw new UsageError(needsStudy(view));
+    const study = boardCorrection(board, spec.correction, optionName(view));
+    assertDrawable(study, optionName(view));
+    return drawCorrected(study.report.verification.before, study.report.verification.after, view, study.recommended);
   }
   return drawSolved(solveBoardModel(board), view);
 }
 
-/** Before/after drawings of one board from the file's correction study, for a board file or an installation. */
-function drawCorrected(before: BoardResult, after: BoardResult, view: DiagramView): string {
-  return view === 'triangles' ? renderCurrentTriangles(before, after) : view === 'sequence' ? renderSequenceDiagram(after, { title: 'Symmetrical components with the correction in place' }) : renderPhasorDiagram(before, { after });
+/**
+ * Before/after drawings of one board from the file's correction study, for a board file or an installation;
+ * the title names the arrangement where trivar correct chose it (the file names none).
+ */
+function drawCorrected(before: BoardResult, after: BoardResult, view: DiagramView, recommended: string | null): string {
+  const chosen = recommended === null ? '' : ` the recommended ${recommended}`;
+  if (view === 'triangles') return renderCurrentTriangles(before, after, recommended === null ? {} : { title: `Line current triangles — before and after${chosen}` });
+  if (view === 'sequence') return renderSequenceDiagram(after, { title: `Symmetrical components with${chosen || ' the correction'} in place` });
+  return renderPhasorDiagram(before, { after, ...(recommended === null ? {} : { title: `Phasors at the board — before and after${chosen}` }) });
 }
 
+const optionName = (view: DiagramView) => (view === 'triangles' ? '--view triangles' : '--with-correction');
+
 const needsStudy = (view: DiagramView) =>
-  `the ${view === 'triangles' ? 'triangles view' : '--with-correction option'} needs a correction study: add a "correction:" section with an arrangement to the file (see trivar correct --help)`;
+  `the ${view === 'triangles' ? 'triangles view' : '--with-correction option'} needs a correction study: add a "correction:" section to the file (with an arrangement, or without one for the arrangement trivar correct recommends; see trivar correct --help)`;
+
+/** An "after" with no bank as built would draw equipment no catalogue unit makes: refused, saying why. */
+function assertDrawable(study: FileCorrection, option: string): void {
+  const r = study.report;
+  if (r.status !== 'no-suitable-units') return;
+  const name = study.recommended ?? arrangementNames(r.verification.before.board.system)[r.arrangement];
+  throw new UsageError(
+    `${option}: no unit of the catalogue suits the ${name}${r.selection?.unbuildable ? ` (${r.selection.unbuildable.message})` : ''}, so there is no correction as built to draw (trivar correct shows the sizing); give a catalogue (correction.catalogue) or name another arrangement (correction.arrangement)`,
+  );
+}
 
 function drawInstallation(raw: unknown, view: DiagramView, options: DiagramCommandOptions): string {
   const spec = parseInstallation(raw);
@@ -68,13 +87,15 @@ function drawInstallation(raw: unknown, view: DiagramView, options: DiagramComma
     return renderOneLineDiagram(solveInstallationModel(installation));
   }
   if (view === 'triangles' || options.withCorrection) {
-    if (!spec.correction?.arrangement) throw new UsageError(needsStudy(view));
+    if (!spec.correction) throw new UsageError(needsStudy(view));
     // The equipment goes on the board the study names; the drawing shows --board (default: that board).
     const { board: equipmentBoard, ...study } = spec.correction;
-    const effect = correctInstallation(installation, study, equipmentBoard === undefined ? {} : { board: equipmentBoard }).effect;
+    const corrected = installationCorrection(installation, study, equipmentBoard, optionName(view));
+    assertDrawable(corrected, optionName(view));
+    const effect = corrected.effect;
     const name = chooseBoard([effect.board, ...effect.before.boards.map((b) => b.name).filter((n) => n !== effect.board)], options.board);
     const at = (r: typeof effect.before) => r.boards.find((b) => b.name === name)!.result;
-    return drawCorrected(at(effect.before), at(effect.after), view);
+    return drawCorrected(at(effect.before), at(effect.after), view, corrected.recommended);
   }
   const result = solveInstallationModel(installation);
   const name = chooseBoard(result.boards.map((b) => b.name), options.board);

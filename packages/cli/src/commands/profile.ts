@@ -6,8 +6,6 @@ import {
   checkIntervalSequence,
   conventionsOf,
   labellerOf,
-  correctBoard,
-  switchingFromBank,
   type SwitchingFromBank,
   driverColumns,
   normaliseBoard,
@@ -26,6 +24,7 @@ import {
 import type { CliIo } from '../io.js';
 import { UsageError } from '../exitCodes.js';
 import { inFileSection } from './correct.js';
+import { boardCorrection, switchedBankOf } from './fileCorrectionStudy.js';
 import { assertNotInput, writeOutputFile } from '../outputFiles.js';
 import { writeResult } from '../writeResult.js';
 import { readCsvHeader, readIntervalRows } from '../read/intervalCsv.js';
@@ -62,24 +61,22 @@ export interface ProfileCommandOptions {
  */
 export function designedBankOf(spec: ReturnType<typeof parseBoard>, board: ReturnType<typeof normaliseBoard>): SwitchingFromBank {
   const study = spec.correction;
-  if (!study?.arrangement)
+  if (!study)
     throw new UsageError(
-      '--correction-bank: the board file has no correction section naming an arrangement, so the correction study designs no single bank (add correction: { arrangement: ... }; trivar correct compares arrangements)',
+      '--correction-bank: the board file has no correction section, so there is no correction study to take a bank from (add correction: with an arrangement, or without one for the arrangement trivar correct recommends)',
     );
   const point = study.target?.measuredAt;
   if (point !== undefined && point !== board.name)
     throw new UsageError(
       `--correction-bank: the correction section measures its target at ${JSON.stringify(point)} (target.measuredAt); on a board file the simulated controller reads the board's own incomer, so write the board as an installation file with this one board under boards: to have it read there`,
     );
-  let selection;
+  let corrected;
   try {
-    selection = correctBoard(board, study).selection;
+    corrected = boardCorrection(board, study, '--correction-bank');
   } catch (error) {
     throw inFileSection(error);
   }
-  if (!selection?.steps.length || !selection.controller)
-    throw new UsageError('--correction-bank: the correction study builds no switched bank for this board (run trivar correct to see why)');
-  return switchingFromBank(selection.steps, selection.controller);
+  return switchedBankOf(corrected, '--correction-bank');
 }
 
 export async function computeProfileStudy(spec: ReturnType<typeof parseBoard>, data: string, options: ProfileCommandOptions, io: CliIo): Promise<ProfileStudy> {

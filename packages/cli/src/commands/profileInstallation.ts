@@ -5,9 +5,7 @@ import { join } from 'node:path';
 import {
   boardSectionIds,
   checkIntervalSequence,
-  correctInstallation,
   driverColumns,
-  switchingFromBank,
   type Installation,
   type SwitchingFromBank,
   installationBoardIndex,
@@ -33,6 +31,7 @@ import { installationIntervalCsv, installationSummaryCsv } from '../format/profi
 import { CHART_FILES, FEEDER_CHART_FILE, writeInstallationProfileCharts } from '../format/profileChartFiles.js';
 import type { ProfileCommandOptions } from './profile.js';
 import { inFileSection } from './correct.js';
+import { installationCorrection, switchedBankOf } from './fileCorrectionStudy.js';
 
 /** A folder per board for its charts, named after the board (`Mill intake` → `mill-intake`), unique. */
 export function chartFolders(names: readonly string[]): Map<string, string> {
@@ -49,24 +48,21 @@ function designedInstallationBank(
   installation: Installation,
   boardOption: string | undefined,
 ): { bank: SwitchingFromBank; board: string | undefined; measuredAt: string | undefined } {
-  const { board: fileBoard, ...study } = spec.correction ?? {};
-  if (!study.arrangement)
+  if (!spec.correction)
     throw new UsageError(
-      '--correction-bank: the installation file has no correction section naming an arrangement, so the correction study designs no single bank (add correction: { arrangement: ..., board: ... }; trivar correct compares arrangements)',
+      '--correction-bank: the installation file has no correction section, so there is no correction study to take a bank from (add correction: with its board, and an arrangement or none for the arrangement trivar correct recommends)',
     );
+  const { board: fileBoard, ...study } = spec.correction;
   if (fileBoard !== undefined) installationBoardIndex(installation, fileBoard, 'correction.board');
   const board = boardOption ?? fileBoard;
   let studied;
   try {
-    studied = correctInstallation(installation, study, board === undefined ? {} : { board });
+    studied = installationCorrection(installation, study, board, '--correction-bank');
   } catch (error) {
     throw inFileSection(error);
   }
-  const selection = studied.report.selection;
-  if (!selection?.steps.length || !selection.controller)
-    throw new UsageError('--correction-bank: the correction study builds no switched bank for this board (run trivar correct to see why)');
   // The controller reads where the study's target is measured (target.measuredAt), as trivar correct sets it up.
-  return { bank: switchingFromBank(selection.steps, selection.controller), board, measuredAt: studied.measuredAt };
+  return { bank: switchedBankOf(studied, '--correction-bank'), board, measuredAt: studied.measuredAt };
 }
 
 /** Options that need interval data, refused beside scenarios rather than left unused. */

@@ -34,6 +34,7 @@ import { timeZoneOption } from '../read/timeZoneOption.js';
 import type { CliIo } from '../io.js';
 import { UsageError } from '../exitCodes.js';
 import { renderRebalanceReport } from '../format/rebalanceReport.js';
+import { assertRebalanceOptionsFit, optionsError, rebalanceStudySpec as studySpec } from './rebalanceStudyOptions.js';
 
 export interface RebalanceCommandOptions {
   readonly json?: boolean;
@@ -51,20 +52,6 @@ export interface RebalanceCommandOptions {
   readonly method?: 'auto' | 'exact' | 'local-search';
   readonly table?: boolean;
   readonly write?: string;
-}
-
-/** The board file's `rebalance` section with the command-line options laid over it. */
-function studySpec(fromFile: Record<string, unknown> | undefined, o: RebalanceCommandOptions): Record<string, unknown> {
-  const spec: Record<string, unknown> = { ...(fromFile ?? {}) };
-  if (o.aim !== undefined) spec.aim = o.aim;
-  if (o.combine !== undefined) spec.combine = o.combine;
-  if (o.moveLimit !== undefined) spec.moveLimit = o.moveLimit;
-  if (o.nearBest !== undefined) spec.nearBestPercent = o.nearBest;
-  if (o.capacity !== undefined) spec.lineCapacityA = o.capacity;
-  if (o.boards !== undefined) spec.boards = o.boards;
-  if (o.measureAt !== undefined) spec.measureAt = o.measureAt;
-  if (o.scenarios) spec.conditions = 'scenarios';
-  return spec;
 }
 
 /** True when two paths name the same file (also through links). */
@@ -114,9 +101,12 @@ export async function runRebalance(file: string, options: RebalanceCommandOption
     ...(options.table === false ? { moveTable: false } : {}),
   };
   let report: RebalanceReport;
+  let fileSection: Record<string, unknown> | undefined;
   try {
     if (isInstallationInput(input)) {
       const spec = parseInstallation(input);
+      fileSection = spec.rebalance as Record<string, unknown> | undefined;
+      assertRebalanceOptionsFit(fileSection, options);
       const study = studySpec(spec.rebalance as Record<string, unknown> | undefined, options);
       const installation = normaliseInstallation(spec).installation;
       if (options.data !== undefined) {
@@ -126,6 +116,8 @@ export async function runRebalance(file: string, options: RebalanceCommandOption
       } else report = rebalanceInstallation(installation, study, search);
     } else {
       const spec = parseBoard(input);
+      fileSection = spec.rebalance as Record<string, unknown> | undefined;
+      assertRebalanceOptionsFit(fileSection, options);
       const study = studySpec(spec.rebalance as Record<string, unknown> | undefined, options);
       const board = normaliseBoard(spec);
       if (options.data !== undefined) {
@@ -135,7 +127,10 @@ export async function runRebalance(file: string, options: RebalanceCommandOption
       } else report = rebalanceBoard(board, study, { ...search, profile: spec.profile });
     }
   } catch (error) {
-    if (error instanceof InputError && error.heading.startsWith('the rebalancing study'))
+    if (error instanceof InputError && error.heading.startsWith('the rebalancing study')) {
+      // A problem an option brought in is the command line's (exit 2), named by the option.
+      const fromOptions = optionsError(error, fileSection, options);
+      if (fromOptions) throw fromOptions;
       throw new InputError(
         error.issues.map((i) => {
           const path = i.path.startsWith('profile.') ? i.path : i.path ? `rebalance.${i.path}` : 'rebalance';
@@ -143,6 +138,7 @@ export async function runRebalance(file: string, options: RebalanceCommandOption
         }),
         'the rebalancing study is not valid (board file rebalance section or command-line options)',
       );
+    }
     throw error;
   }
   if (options.write !== undefined) writeFileSync(options.write, rewriteBoardText(text, report.moves));

@@ -11,10 +11,13 @@ const TWO_LINE_LEGEND = 'L-N bank: capacitors from each line to the neutral; L-L
 
 /**
  * The arrangements' names in the comparison's tables: the board's own words (arrangementNames), the
- * compensator shortened, and on a board without three phases L-N / L-L so the table keeps to 100 columns.
+ * compensator shortened, on a split-phase board L-N / L-L so the table keeps to 100 columns, and on a
+ * single-phase board, whose one bank is capacitors across the supply, "capacitors".
  */
 export const tableNames = (system: string): Readonly<Record<Arrangement, string>> => {
   const names = { ...arrangementNames(system), 'balancing-compensator': 'compensator' };
+  // A single-phase board's one bank: capacitors across the supply, nothing to tell apart.
+  if (system === 'single-phase') return { ...names, 'star-bank': 'capacitors' };
   return names['star-bank'] === 'star bank' ? names : { ...names, ...TWO_LINE_TABLE_NAMES };
 };
 

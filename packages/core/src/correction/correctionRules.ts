@@ -24,10 +24,14 @@ export function arrangementsFor(board: Board): readonly NonNullable<CorrectionSp
   return ['star-bank'];
 }
 
+/** Why an arrangement does not fit: a delta bank needs two lines, which only a single-phase board lacks. */
+const needs = (arrangement: string, board: Board): string =>
+  arrangement === 'delta-bank' && board.system === 'single-phase' ? 'needs two lines; a single-phase board has one line and the neutral' : 'needs three phases';
+
 function ruleArrangementFitsBoard(spec: CorrectionSpec, board: Board): InputIssue[] {
   const fits = arrangementsFor(board);
   if (spec.arrangement !== undefined && !fits.includes(spec.arrangement))
-    return [inputIssue('not_applicable', 'arrangement', `${fits.join(' or ')} on a ${board.system} board (${spec.arrangement} needs three phases)`, spec.arrangement)];
+    return [inputIssue('not_applicable', 'arrangement', `${fits.join(' or ')} on a ${board.system} board (${spec.arrangement} ${needs(spec.arrangement, board)})`, spec.arrangement)];
   return [];
 }
 

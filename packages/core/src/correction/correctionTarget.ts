@@ -18,7 +18,7 @@ import type { BoardResult, PowerFactorSense } from '../analysis/boardResult.js';
 import type { TargetReadings } from '../analysis/analyseSolution.js';
 import type { Arrangement, TargetDefinition, TargetSpec } from './correctionSpec.js';
 import { CORRECTION_DEFAULTS } from './correctionDefaults.js';
-import { meteredStatement, TARGET_STATEMENTS, targetShortfall } from './correctionWording.js';
+import { meteredStatement, SINGLE_LINE_STATEMENT, TARGET_STATEMENTS, targetShortfall } from './correctionWording.js';
 import { labellerOf } from '../board/conventions/phaseNames.js';
 
 export type BoardTargetDefinition = Exclude<TargetDefinition, 'per-line'>;
@@ -62,9 +62,11 @@ export function resolveTarget(spec: TargetSpec | undefined, board: Board, arrang
   const pf = spec?.pf ?? CORRECTION_DEFAULTS.pf;
   const leading = spec?.leading ?? CORRECTION_DEFAULTS.leading;
   const lines = definition === 'per-line' ? board.phases.map((phase) => ({ phase, minPf: spec?.perPhase?.[phase] ?? pf })) : [];
+  // "Every line" and a 3-wire board's virtual neutral say nothing on a board with one line and the neutral.
+  const stated = definition === 'per-line' && board.system === 'single-phase' ? SINGLE_LINE_STATEMENT : TARGET_STATEMENTS[definition];
   return {
     definition,
-    statement: spec?.measuredAt === undefined ? TARGET_STATEMENTS[definition] : meteredStatement(TARGET_STATEMENTS[definition]),
+    statement: spec?.measuredAt === undefined ? stated : meteredStatement(stated),
     pf,
     lines,
     leading,

@@ -38,6 +38,9 @@ export const TARGET_STATEMENTS: Record<TargetDefinition, string> = {
   'positive-sequence': 'fundamental positive-sequence power factor of the board, P1+/S1+ (IEEE Std 1459)',
 };
 
+/** The per-line target on a single-phase (2-wire) board: its one line, to the neutral. */
+export const SINGLE_LINE_STATEMENT = 'displacement power factor at the board, P/|S| with S = V·I* (the line to the neutral)';
+
 /** A target's statement when it is measured away from the equipment's board (see meteringPoint.ts). */
 export const meteredStatement = (statement: string): string => statement.replace(' at the board', ' at the metering point').replace(' of the board', ' at the metering point');
 
@@ -223,10 +226,17 @@ const THREE_PHASE_NAMES: Readonly<Record<Arrangement, string>> = { 'star-bank': 
  * arrangement's value (`star-bank`, `delta-bank`) is the same on every board.
  */
 const TWO_LINE_NAMES: Readonly<Record<Arrangement, string>> = { 'star-bank': 'line-to-neutral bank', 'delta-bank': 'line-to-line bank', 'balancing-compensator': 'balancing compensator' };
+/**
+ * A single-phase (2-wire) board has one line and the neutral: the one bank that fits is capacitors
+ * across the supply, so "line-to-neutral" tells nothing apart. The other names appear only where
+ * the file asks for an arrangement that does not fit.
+ */
+const SINGLE_PHASE_NAMES: Readonly<Record<Arrangement, string>> = { ...TWO_LINE_NAMES, 'star-bank': 'capacitor bank' };
 const threePhase = (system: string): boolean => system === 'three-phase-4wire' || system === 'three-phase-3wire';
 
 /** What each arrangement is called in sentences and tables on a board of this system. */
-export const arrangementNames = (system: string): Readonly<Record<Arrangement, string>> => (threePhase(system) ? THREE_PHASE_NAMES : TWO_LINE_NAMES);
+export const arrangementNames = (system: string): Readonly<Record<Arrangement, string>> =>
+  threePhase(system) ? THREE_PHASE_NAMES : system === 'single-phase' ? SINGLE_PHASE_NAMES : TWO_LINE_NAMES;
 
 /** Each arrangement said in full, for a report's heading line, on a board of this system. */
 export const arrangementDescriptions = (system: string): Readonly<Record<Arrangement, string>> =>
@@ -236,11 +246,17 @@ export const arrangementDescriptions = (system: string): Readonly<Record<Arrange
         'delta-bank': 'delta-connected capacitor bank (one capacitor per line pair)',
         'balancing-compensator': 'balancing compensator (Steinmetz/Gyugyi reactive branches)',
       }
-    : {
-        'star-bank': 'line-to-neutral capacitor bank (capacitors from each line to the neutral)',
-        'delta-bank': 'line-to-line capacitor bank (capacitors across the two lines)',
-        'balancing-compensator': 'balancing compensator (Steinmetz/Gyugyi reactive branches)',
-      };
+    : system === 'single-phase'
+      ? {
+          'star-bank': 'capacitor bank across the supply (line to neutral)',
+          'delta-bank': 'line-to-line capacitor bank (needs two lines)',
+          'balancing-compensator': 'balancing compensator (Steinmetz/Gyugyi reactive branches)',
+        }
+      : {
+          'star-bank': 'line-to-neutral capacitor bank (capacitors from each line to the neutral)',
+          'delta-bank': 'line-to-line capacitor bank (capacitors across the two lines)',
+          'balancing-compensator': 'balancing compensator (Steinmetz/Gyugyi reactive branches)',
+        };
 
 const STATUS_SHORT: Record<string, string> = {
   'meets-target': 'meets the target across the capacitance tolerance',
@@ -270,7 +286,9 @@ export const comparisonWording = {
           ? nothingAdded(f.cost)
             ? `${name}: ${STATUS_SHORT[status]} with nothing added to the board`
             : `${name}: ${STATUS_SHORT[status]} at ${tieOnCost ? 'about the least cost and with the lowest losses' : 'the least cost'} (cost ${f.cost.toFixed(1)})`
-          : `${name}: no arrangement meets the target; this one comes closest (${STATUS_SHORT[status]})`;
+          : others.length
+            ? `${name}: no arrangement meets the target; this one comes closest (${STATUS_SHORT[status]})`
+            : `${name}: the only arrangement studied ${STATUS_SHORT[status]}`;
     if (status === 'already-meets-target') return head;
     const rest = others.map((o) =>
       o.status !== status ? `${o.name} ${STATUS_SHORT[o.status]}` : nothingAdded(o.cost) ? `${o.name} also adds nothing` : `${o.name} costs ${o.cost.toFixed(1)}`,

@@ -1,14 +1,19 @@
 /**
  * Issues found after the file's phase names were turned into A/B/C point back at the
  * file as written: a file in L1/L2/L3 gets `supply.emf.L2`, not `supply.emf.B`.
- * Paths are rewritten here (they are schema keys and indices, never user text), and so are
+ * Paths are rewritten here (their schema keys only: a name the user gave stays as written), and so are
  * a schema word list's phase terms (`one of "L1-N", …`) with the phase term it received;
  * the rules word their own sentences in the naming they are handed (`issueNamingOf`).
  */
 import type { InputIssue } from '../../errors.js';
 import { NUMBERED_SPELLING, type PhaseNaming } from './phaseNames.js';
 
-const PHASE_KEY = /(?<=^|\.)(A|B|C|A-B|B-C|C-A)(?=$|\.|\[)/g;
+/**
+ * A phase key of a path (`supply.emf.B`, `lineCapacityA.C`). Not one that is the user's own
+ * name — a key of a name-keyed map (`conditions[0].circuits.B`, `profile.scenarios[1].loads.C`,
+ * `profile.groups.A`, `lightLoad.perLoad.A`) — nor a load's current field (`loads[2].A`).
+ */
+const PHASE_KEY = /(?<=^|\.)(?<!(?:^|\.)(?:circuits|loads|groups|perLoad)\.)(?<!(?:^|\.)loads\[\d+\]\.)(A|B|C|A-B|B-C|C-A)(?=$|\.|\[)/g;
 /** A quoted word of a schema's list ("A-N"): the lists are the schema's own words, never user text. */
 const QUOTED_TERM = /"([^"]*)"/g;
 
