@@ -34,23 +34,11 @@ import { timeZoneOption } from '../read/timeZoneOption.js';
 import type { CliIo } from '../io.js';
 import { UsageError } from '../exitCodes.js';
 import { renderRebalanceReport } from '../format/rebalanceReport.js';
-import { assertRebalanceOptionsFit, optionsError, rebalanceStudySpec as studySpec } from './rebalanceStudyOptions.js';
+import { assertRebalanceOptionsFit, optionsError, rebalanceStudySpec as studySpec, type RebalanceStudyOptions } from './rebalanceStudyOptions.js';
 
-export interface RebalanceCommandOptions {
+export interface RebalanceCommandOptions extends RebalanceStudyOptions {
   readonly json?: boolean;
-  readonly aim?: Record<string, number>;
-  readonly combine?: string;
-  readonly moveLimit?: number;
-  readonly nearBest?: number;
-  readonly capacity?: number;
-  readonly boards?: string[];
-  readonly measureAt?: string;
-  readonly scenarios?: boolean;
-  readonly data?: string;
-  readonly spread?: number;
-  readonly timeZone?: string;
   readonly method?: 'auto' | 'exact' | 'local-search';
-  readonly table?: boolean;
   readonly write?: string;
 }
 
