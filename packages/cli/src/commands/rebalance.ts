@@ -34,6 +34,7 @@ import { timeZoneOption } from '../read/timeZoneOption.js';
 import type { CliIo } from '../io.js';
 import { UsageError } from '../exitCodes.js';
 import { renderRebalanceReport } from '../format/rebalanceReport.js';
+import { writeResult } from '../writeResult.js';
 
 export interface RebalanceCommandOptions {
   readonly json?: boolean;
@@ -146,6 +147,6 @@ export async function runRebalance(file: string, options: RebalanceCommandOption
     throw error;
   }
   if (options.write !== undefined) writeFileSync(options.write, rewriteBoardText(text, report.moves));
-  io.stdout(options.json ? `${JSON.stringify(report, null, 2)}\n` : renderRebalanceReport(report));
+  writeResult(io, report, options.json, renderRebalanceReport);
   return report;
 }
