@@ -5,7 +5,8 @@
 import { describe, expect, it } from 'vitest';
 import { runTrivar } from './runTrivar.js';
 
-const SUPPLY = 'supply: { system: three-phase-4wire, voltage: { lineToLine: 400 }, frequencyHz: 50, transformer: { kVA: 250, impedancePercent: 4, xOverR: 3 } }';
+const IDLE = 'test/fixtures/hostile/idle-plant-room.yaml';
+const IDLE_DATA = 'test/fixtures/hostile/idle-plant-room.csv';
 const noStack = (stderr: string) => expect(stderr).not.toMatch(/\n\s+at .+[:(]\d+/);
 const CONTROL = /[\u0000-\u0008\u000b-\u001f\u007f-\u009f\u202a-\u202e]/;
 
@@ -37,5 +38,35 @@ describe('control characters in board names', () => {
     }
     const all = runTrivar(['harmonics', '-', '--all-boards'], controlNamed);
     expect(all.stdout).toContain('━━ Plant\\u{7}room\\u{202E}\\0x');
+  });
+});
+
+describe('a sub-board with nothing on: round-off is not data', () => {
+  it('solve --json: its feeder carries exactly 0 A and the board takes exactly 0 kW from its feeder', () => {
+    const r = runTrivar(['solve', IDLE, '--json']);
+    expect(r.code).toBe(0);
+    const result = JSON.parse(r.stdout);
+    const feeder = result.feeders.find((f: { board: string }) => f.board === 'Plant room');
+    expect(feeder.lines.map((l: { current: { magnitude: number } }) => l.current.magnitude)).toEqual([0, 0, 0]);
+    expect(feeder.lines.map((l: { loadingPercent: number }) => l.loadingPercent)).toEqual([0, 0, 0]);
+    expect(feeder.neutral.current.magnitude).toBe(0);
+    const board = result.boards.find((b: { name: string }) => b.name === 'Plant room').result;
+    expect(board.source).toEqual({ kW: 0, kvar: 0 });
+    // The loaded boards keep their figures: the main board's feeder carries what its board reads.
+    const main = result.boards[0].result;
+    expect(result.feeders[0].lines[0].current).toEqual(main.phases[0].current);
+    expect(main.source.kW).toBeGreaterThan(14.9);
+  });
+  it('profile: no current, energy, reactive energy or leading hours through it in any interval', () => {
+    const r = runTrivar(['profile', IDLE, '--data', IDLE_DATA, '--json']);
+    expect(r.code).toBe(0);
+    const plant = JSON.parse(r.stdout).boards.find((b: { board: string }) => b.board === 'Plant room').before;
+    expect(plant.conductors.map((c: { maxA: number }) => c.maxA)).toEqual([0, 0, 0, 0]);
+    expect(plant.energy.phases.map((p: { kWh: number; kvarh: number }) => [p.kWh, p.kvarh])).toEqual([[0, 0], [0, 0], [0, 0]]);
+    expect([plant.energy.kWhImport, plant.energy.kWhExport, plant.energy.kvarhLagging, plant.energy.kvarhLeading]).toEqual([0, 0, 0, 0]);
+    expect(plant.leadingHours).toBe(0);
+    // The flats' board is untouched: its feeder carries real current.
+    const floor = JSON.parse(r.stdout).boards.find((b: { board: string }) => b.board === 'Floor 1').before;
+    expect(floor.conductors[0].maxA).toBeGreaterThan(5);
   });
 });
