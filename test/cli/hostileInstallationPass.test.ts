@@ -70,3 +70,46 @@ describe('a sub-board with nothing on: round-off is not data', () => {
     expect(floor.conductors[0].maxA).toBeGreaterThan(5);
   });
 });
+
+/** A riser on a 10 kVA, 25 % transformer: every board's voltage collapses. Flats draw switch-mode current. */
+const collapsedRiser = `name: Collapsed riser
+supply: { system: three-phase-4wire, voltage: { lineToLine: 400 }, frequencyHz: 50, transformer: { kVA: 10, impedancePercent: 25, xOverR: 2 } }
+boards:
+  - { name: Main, loads: [{ name: Lift, connection: ABC-delta, kW: 11, pf: 0.82 }] }
+  - name: Floor 1
+    fedFrom: Main
+    feeder: { lengthM: 12, line: { mm2: 70 }, neutral: { mm2: 70 } }
+    loads:
+      - { name: Flat 1A, connection: A-N, kW: 6.2, pf: 0.96, spectrum: switch-mode }
+      - { name: Flat 1B, connection: B-N, kW: 3.1, pf: 0.97, spectrum: switch-mode }
+`;
+const collapsedBoard = `name: Collapsed board
+supply: { system: three-phase-4wire, voltage: { lineToLine: 400 }, frequencyHz: 50, transformer: { kVA: 10, impedancePercent: 25, xOverR: 2 } }
+loads:
+  - { name: a, connection: A-N, kW: 30, pf: 0.9, spectrum: switch-mode }
+  - { name: b, connection: B-N, kW: 20, pf: 0.9 }
+correction: { arrangement: delta-bank, target: { pf: 0.95 } }
+`;
+
+describe('a collapsed supply: studies refuse it, as correct does, and report still writes the report', () => {
+  it('harmonics of a collapsed installation or board: exit 4, the collapse named per board, no figures', () => {
+    const inst = runTrivar(['harmonics', '-'], collapsedRiser);
+    noStack(inst.stderr);
+    expect(inst.code).toBe(4);
+    expect(inst.stderr).toMatch(/no viable operating point.*Main: the board voltage has collapsed.*Floor 1: the board voltage has collapsed/);
+    expect(inst.stdout).toBe('');
+    const board = runTrivar(['harmonics', '-'], collapsedBoard);
+    expect(board.code).toBe(4);
+    expect(board.stderr).toMatch(/^error: no viable operating point: the supply cannot carry these loads: the board voltage has collapsed/);
+    expect(board.stdout).toBe('');
+  });
+  it('report of a collapsed file with harmonic data or a correction section: written, collapse stated first, exit 4', () => {
+    for (const text of [collapsedRiser, collapsedBoard]) {
+      const r = runTrivar(['report', '-'], text);
+      noStack(r.stderr);
+      expect(r.code).toBe(4);
+      expect(r.stdout).toContain('Supply collapse: the supply cannot carry these loads');
+      expect(r.stdout).toMatch(/<\/html>\s*$/);
+    }
+  });
+});
