@@ -113,3 +113,20 @@ describe('a collapsed supply: studies refuse it, as correct does, and report sti
     }
   });
 });
+
+describe('correction equipment on a board that draws nothing', () => {
+  it('every arrangement says nothing to do, with the reason, as the balancing compensator did (not "not reachable")', () => {
+    const r = runTrivar(['correct', IDLE, '--board', 'Plant room', '--json']);
+    expect(r.code).toBe(0);
+    const { comparison } = JSON.parse(r.stdout);
+    expect(comparison.outcomes.map((o: { arrangement: string; report: { status: string } }) => [o.arrangement, o.report.status])).toEqual([
+      ['star-bank', 'already-meets-target'],
+      ['delta-bank', 'already-meets-target'],
+      ['balancing-compensator', 'already-meets-target'],
+    ]);
+    const star = runTrivar(['correct', IDLE, '--board', 'Plant room', '--arrangement', 'star-bank']);
+    expect(star.code).toBe(0);
+    expect(star.stdout).toMatch(/NOTHING TO DO[^\n]*\n[^\n]*\n {2}- the board draws no active power \(every load is zero or off\), so there is nothing to correct/);
+    expect(star.stdout).not.toMatch(/NOT REACHABLE/);
+  });
+});
