@@ -130,3 +130,20 @@ describe('correction equipment on a board that draws nothing', () => {
     expect(star.stdout).not.toMatch(/NOT REACHABLE/);
   });
 });
+
+describe('a sub-board written without a feeder', () => {
+  it('is said to be taken as of no impedance in the text report and the JSON, not left silent', () => {
+    const text = `name: Busbar section
+supply: { system: three-phase-4wire, voltage: { lineToLine: 400 }, frequencyHz: 50, transformer: { kVA: 250, impedancePercent: 4, xOverR: 3 } }
+boards:
+  - { name: Main, feeder: { lengthM: 30, line: { mm2: 120 }, neutral: { mm2: 120 } }, loads: [{ name: Lights, connection: A-N, kW: 2 }] }
+  - { name: Section 2, fedFrom: Main, loads: [{ name: Heater, connection: B-N, kW: 3 }] }
+`;
+    const r = runTrivar(['solve', '-'], text);
+    expect(r.code).toBe(0);
+    expect(r.stdout).toContain('  cable to Section 2: none entered (zero impedance)');
+    const json = JSON.parse(runTrivar(['solve', '-', '--json'], text).stdout);
+    expect(json.feeders.map((f: { description: string | null }) => f.description)).toEqual(['120 mm² Cu, 30 m at 70 °C', 'none entered (zero impedance)']);
+    expect(json.feeders[1].lossesKW).toBe(0);
+  });
+});
