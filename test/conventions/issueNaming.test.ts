@@ -97,6 +97,13 @@ describe('issues in a file written in L1/L2/L3', () => {
     expect(result.ok).toBe(false);
     if (!result.ok) expect(result.issues.map((i) => i.message)).toContain('boards[1].feeder.line.L3: expected only phases L1, L2 on a split-phase supply (received "L3")');
   });
+  it('a load with no connection lists the connections in L1/L2/L3, with nothing received', () => {
+    const issues = issuesOf(edit((b) => b.loads.push({ name: 'dryer', kW: 5 })));
+    const missing = issues.find((i) => i.path === 'loads[3].connection')!;
+    expect(missing.code).toBe('missing');
+    expect(missing.message).toBe('loads[3].connection: expected one of "L1-N", "L2-N", "L3-N", "L1-L2", "L2-L3", "L3-L1", "L1L2L3-star", "L1L2L3-delta"');
+    expect(missing.received).toBeUndefined();
+  });
 });
 
 describe('study sections of a file written in L1/L2/L3', () => {

@@ -4,6 +4,8 @@ import type { CliIo } from '../io.js';
 import { renderHarmonicsReport } from '../format/harmonicsReport.js';
 import { renderInstallationHarmonicsReport } from '../format/installationHarmonicsReport.js';
 import { boardOptionOnBoardFile, unknownBoardError } from './chooseBoard.js';
+import { writeResult } from '../writeResult.js';
+import { escapeControlCharacters } from '../format/terminalText.js';
 
 export interface HarmonicsCommandOptions {
   readonly json?: boolean;
@@ -17,7 +19,7 @@ export async function runHarmonics(file: string, options: HarmonicsCommandOption
   if (!isInstallationInput(input)) {
     if (options.board?.length || options.allBoards) throw boardOptionOnBoardFile('--board and --all-boards');
     const report = studyHarmonics(input);
-    io.stdout(options.json ? `${JSON.stringify(report, null, 2)}\n` : renderHarmonicsReport(report));
+    writeResult(io, report, options.json, renderHarmonicsReport);
     return report;
   }
   const report = studyInstallationHarmonics(input);
@@ -25,6 +27,7 @@ export async function runHarmonics(file: string, options: HarmonicsCommandOption
   const unknown = (options.board ?? []).filter((n) => !names.includes(n));
   if (unknown.length) throw unknownBoardError(unknown, names);
   const detailed = options.allBoards ? names : names.filter((n) => options.board?.includes(n));
-  io.stdout(options.json ? `${JSON.stringify(report, null, 2)}\n` : renderInstallationHarmonicsReport(report, { detailed }));
+  // The text report reads the escaped copy of the data: the names it looks up are escaped alike.
+  writeResult(io, report, options.json, (r) => renderInstallationHarmonicsReport(r, { detailed: detailed.map(escapeControlCharacters) }));
   return report;
 }

@@ -35,6 +35,7 @@ import type { CliIo } from '../io.js';
 import { UsageError } from '../exitCodes.js';
 import { renderRebalanceReport } from '../format/rebalanceReport.js';
 import { assertRebalanceOptionsFit, optionsError, rebalanceStudySpec as studySpec, type RebalanceStudyOptions } from './rebalanceStudyOptions.js';
+import { writeResult } from '../writeResult.js';
 
 export interface RebalanceCommandOptions extends RebalanceStudyOptions {
   readonly json?: boolean;
@@ -130,6 +131,6 @@ export async function runRebalance(file: string, options: RebalanceCommandOption
     throw error;
   }
   if (options.write !== undefined) writeFileSync(options.write, rewriteBoardText(text, report.moves));
-  io.stdout(options.json ? `${JSON.stringify(report, null, 2)}\n` : renderRebalanceReport(report));
+  writeResult(io, report, options.json, renderRebalanceReport);
   return report;
 }

@@ -124,9 +124,11 @@ async function boardDocument(raw: unknown, figures: unknown, options: ReportComm
   const spec = parseBoard(raw);
   const board = normaliseBoard(spec);
   const result = solveBoardModel(board);
-  const { correction, correctionComparison } = options.correction !== false && spec.correction ? boardCorrectionOf(spec, board, spec.correction) : NO_CORRECTION;
+  // A collapsed board's report states the collapse and is written; the studies refuse that state, so they are left out.
+  const viable = collapseOf(result) === null;
+  const { correction, correctionComparison } = viable && options.correction !== false && spec.correction ? boardCorrectionOf(spec, board, spec.correction) : NO_CORRECTION;
   const wantsHarmonics = spec.harmonics !== undefined || spec.loads.some((l) => l.spectrum !== undefined);
-  const harmonics = options.harmonics !== false && wantsHarmonics ? studyHarmonics(raw) : null;
+  const harmonics = viable && options.harmonics !== false && wantsHarmonics ? studyHarmonics(raw) : null;
   const studySections = options.profileData ? [await profileReportSection(spec, options, io, result.conventions.phaseNames)] : [];
   const handCheck = figures === null ? null : handCheckOf(board, figures, options.handFigures!);
   return { doc: buildBoardReport({ spec, result, correction, correctionComparison, harmonics, studySections, handCheck }), result };
@@ -174,9 +176,11 @@ async function installationDocument(raw: unknown, figures: unknown, options: Rep
   const spec = parseInstallation(raw);
   const { installation } = normaliseInstallation(spec);
   const result = solveInstallationModel(installation);
-  const { correction, correctionComparison } = options.correction !== false && spec.correction ? installationCorrectionOf(installation, spec.correction) : NO_CORRECTION;
+  // As for a board: a collapse is stated and the report written, without the studies that refuse that state.
+  const viable = collapseOf(result) === null;
+  const { correction, correctionComparison } = viable && options.correction !== false && spec.correction ? installationCorrectionOf(installation, spec.correction) : NO_CORRECTION;
   const wantsHarmonics = spec.harmonics !== undefined || spec.boards.some((b) => b.loads.some((l) => l.spectrum !== undefined));
-  const harmonics = options.harmonics !== false && wantsHarmonics ? studyInstallationHarmonics(raw) : null;
+  const harmonics = viable && options.harmonics !== false && wantsHarmonics ? studyInstallationHarmonics(raw) : null;
   const studySections = options.profileData ? await installationProfileReportSections(spec, installation, options, io, result.boards[0]!.result.conventions.phaseNames) : [];
   return { doc: buildInstallationReport({ spec, result, correction, correctionComparison, harmonics, studySections }), result };
 }

@@ -2,6 +2,7 @@
 import { isInstallationInput, normaliseBoard, readPlainBoardText, readWellFormedBoard, solveBoardModel, type BoardResult, type InstallationResult } from '@trivar/core';
 import type { CliIo } from '../io.js';
 import { writeResult } from '../writeResult.js';
+import { escapeControlCharacters } from '../format/terminalText.js';
 import { collapseOf } from '../exitCodes.js';
 import { renderSolveReport } from '../format/solveReport.js';
 import { renderInstallationReport } from '../format/installationReport.js';
@@ -37,7 +38,8 @@ export async function runSolve(file: string, options: SolveCommandOptions, io: C
   const unknown = (options.board ?? []).filter((n) => !names.includes(n));
   if (unknown.length) throw unknownBoardError(unknown, names);
   const detailed = options.allBoards ? names : names.filter((n) => options.board?.includes(n));
-  writeResult(io, result, options.json, (r) => renderInstallationReport(r, { detailed }));
+  // The text report reads the escaped copy of the result: the names it looks up are escaped alike.
+  writeResult(io, result, options.json, (r) => renderInstallationReport(r, { detailed: detailed.map(escapeControlCharacters) }));
   // As for a board file: the figures are printed, then a collapse anywhere is the exit status.
   const collapse = collapseOf(result);
   if (collapse) throw collapse;

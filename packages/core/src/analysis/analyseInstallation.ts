@@ -2,7 +2,6 @@
 import type { InstallationSolution } from '../network/solveNetwork.js';
 import type { SolveOptions } from '../network/solveOptions.js';
 import { feedingOrder } from '../network/installationCircuit.js';
-import { toPhasor } from '../complex.js';
 import { analyseSolution } from './analyseSolution.js';
 import { studyOpenNeutral } from './studyOpenNeutral.js';
 import type { BoardResult } from './boardResult.js';
@@ -32,8 +31,9 @@ export function analyseInstallation(solution: InstallationSolution, options: Ana
       const sending = parent === null ? Math.hypot(main.emf[k]!.re, main.emf[k]!.im) : results[parent]!.phases[k]!.voltage.magnitude;
       return {
         phase,
-        current: toPhasor(s.lineCurrents[k]!),
-        loadingPercent: s.board.lineRatingA ? (100 * Math.hypot(s.lineCurrents[k]!.re, s.lineCurrents[k]!.im)) / s.board.lineRatingA : null,
+        // The board's reading of its incoming line current, round-off already read as 0 (noiseFloor.ts).
+        current: r.phases[k]!.current,
+        loadingPercent: s.board.lineRatingA ? (100 * r.phases[k]!.current.magnitude) / s.board.lineRatingA : null,
         voltageDropPercent: (100 * (sending - r.phases[k]!.voltage.magnitude)) / ln,
       };
     });

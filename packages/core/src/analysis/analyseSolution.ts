@@ -224,8 +224,10 @@ export function analyseSolution(solved: NetworkSolution): BoardResult {
   const neutral = readNeutral(solution, voltages.neutralBar);
   const loads = readLoads(solution, voltages.bus);
   const loadTotal = sum(solution.branches.flat().map((s) => mul(s.voltage, conj(s.current))));
-  // A sub-board's supply is what its feeder takes from the board feeding it.
-  const sourcePower = solution.suppliedPower ?? sum(board.emf.map((e, k) => mul(e, conj(solution.lineCurrents[k]!))));
+  // A sub-board's supply is what its feeder takes from the board feeding it; nothing when no current
+  // above round-off flows in it (its raw sum was about 1e-14 kW on a board with nothing on).
+  const idle = solution.lineCurrents.every((i) => i.re === 0 && i.im === 0) && (solution.neutralCurrent === null || (solution.neutralCurrent.re === 0 && solution.neutralCurrent.im === 0));
+  const sourcePower = idle ? ZERO : (solution.suppliedPower ?? sum(board.emf.map((e, k) => mul(e, conj(solution.lineCurrents[k]!)))));
   const seq = threePhase ? readSequences(solution, voltages.phase, phases, lineToLine) : null;
   const powerFactor = readPowerFactors(solution, phases, lineToLine, seq ? { V1: seq.V1, I1: seq.I1 } : null);
   const unbalance = seq?.unbalance ?? null;

@@ -1,11 +1,11 @@
 /**
- * Studies that size equipment for a board (correction) refuse a board whose
- * supply has collapsed: the equipment would be sized for a state that cannot
- * exist. The CLI's `solve` raises the same error after printing the figures.
+ * Studies that size equipment for a board (correction), or read the harmonics of its
+ * state, refuse a board whose supply has collapsed: the equipment would be sized, the
+ * distortion read, for a state that cannot exist. The CLI's `solve` raises the same error after printing the figures.
  */
 import type { Board } from '../board/boardModel.js';
 import { NumericalError } from '../errors.js';
-import { solveInstallationNetwork } from '../network/solveNetwork.js';
+import { solveInstallationNetwork, type NetworkSolution } from '../network/solveNetwork.js';
 import { installationOf } from '../network/installationModel.js';
 import { analyseSolution } from './analyseSolution.js';
 import type { OperatingPoint } from './boardResult.js';
@@ -24,14 +24,22 @@ export function assertViableBoard(board: Board): void {
   // A comparison asks once for the study and once per arrangement; a board is an immutable value.
   if (viableBoards.has(board)) return;
   const { installation } = installationOf(board);
-  const boards = solveInstallationNetwork(installation).boards;
+  assertViableSolutions(solveInstallationNetwork(installation).boards);
+  viableBoards.add(board);
+}
+
+/**
+ * Throws when a solved board (one per board of an installation) has collapsed, each finding named by
+ * its board when there are several: for a study that solved the fundamental itself (harmonics).
+ * @throws {NumericalError} reason `collapsed`
+ */
+export function assertViableSolutions(boards: readonly NetworkSolution[]): void {
   const findings = boards.flatMap((s) => {
     const point = analyseSolution(s).operatingPoint;
     if (!point.collapsed) return [];
     return boards.length > 1 ? point.findings.map((f) => `${s.board.name}: ${f}`) : point.findings;
   });
   if (findings.length) throw collapseError({ operatingPoint: { findings } });
-  viableBoards.add(board);
 }
 
 /** Boards already solved and found viable. */

@@ -14,6 +14,9 @@ const sameLimits = (a: VoltageLimits, b: VoltageLimits | undefined) =>
  * Board numbers: 0 is the main board, then the other boards in file order.
  * @returns the installation and, per board of the file, its board number.
  */
+/** The description of a sub-board's feeder the file leaves out (the HTML report's words for it too). */
+const NO_FEEDER_WORDS = 'none entered (zero impedance)';
+
 export function normaliseInstallation(spec: InstallationBaseSpec): { installation: Installation; boardNumber: number[] } {
   const mainIndex = spec.boards.findIndex((b) => b.fedFrom === undefined);
   const boardNumber: number[] = [];
@@ -26,7 +29,9 @@ export function normaliseInstallation(spec: InstallationBaseSpec): { installatio
   const subBoards: SubBoard[] = new Array(spec.boards.length - 1);
   spec.boards.forEach((b, i) => {
     if (i === mainIndex) return;
-    const feeder = feederModel(b.feeder, main.phases, main.frequencyHz, naming);
+    const modelled = feederModel(b.feeder, main.phases, main.frequencyHz, naming);
+    // A sub-board written without a feeder is taken as on its feeding board's busbar: said, not left silent.
+    const feeder = b.feeder === undefined ? { ...modelled, description: NO_FEEDER_WORDS } : modelled;
     const board = normaliseBoard(boardSpecOf(spec, i));
     const limits = board.conventions?.voltageLimits;
     subBoards[boardNumber[i]! - 1] = {

@@ -4,6 +4,7 @@
  * power factors, judge TDD, scan the resonance for every step combination and
  * check the capacitor duty in each.
  */
+import { assertViableBoard } from '../analysis/viableOperatingPoint.js';
 import { normaliseBoard } from '../board/normaliseBoard.js';
 import type { Board, BoardLoad } from '../board/boardModel.js';
 import { abs, add } from '../complex.js';
@@ -327,12 +328,14 @@ function checkBank(spec: HarmonicsBoardSpec, board: Board): void {
  * Runs the harmonic study of a validated board file (`harmonics:` section, load
  * `spectrum` fields). `studyHarmonics` validates the file first and calls this.
  * @throws {InputError} for a bank on a board that is not three-phase
- * @throws {NumericalError} when a solve fails
+ * @throws {NumericalError} when a solve fails, or reason `collapsed` when the board's supply has collapsed
  */
 export function studyBoardHarmonics(spec: HarmonicsBoardSpec, options: HarmonicsOptions = {}): HarmonicsReport {
   const plain = normaliseBoard(spec);
   checkBank(spec, plain);
   const withBank = spec.harmonics?.bank ? addInstalledBank(plain, spec.harmonics.bank) : { board: plain, model: null };
   const model = resolveHarmonicModel(spec, withBank.board, withBank.model);
+  // Harmonics of a collapsed state describe nothing that can exist (as the correction study refuses it).
+  assertViableBoard(withBank.board);
   return analyseHarmonics(withBank.board, model, options);
 }

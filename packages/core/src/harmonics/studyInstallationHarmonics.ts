@@ -17,6 +17,7 @@ import { regionWords } from '../board/conventions/regionWords.js';
 import { InputError, inputIssue, type InputIssue } from '../errors.js';
 import { boardOfInstallation, installationOf } from '../network/installationModel.js';
 import { solveInstallationNetwork, type InstallationSolution, type SolveOptions } from '../network/solveNetwork.js';
+import { assertViableSolutions } from '../analysis/viableOperatingPoint.js';
 import { addInstalledBank, ordersPresent, resolveHarmonicModel, type BankModel, type HarmonicModel } from './harmonicModel.js';
 import type { HarmonicLoadSpec, InstallationHarmonicsSectionSpec } from './harmonicsSpec.js';
 import type { BoardHarmonics, BoardScan, HarmonicsWarning, InstallationHarmonicsReport, InstallationHarmonicsWarning, JointScan, OtherBankLevel, ResonanceScan } from './harmonicsResult.js';
@@ -215,11 +216,13 @@ export function resolveInstallationHarmonics(spec: HarmonicsInstallationSpec): I
  * Runs the harmonic study of a validated installation file (board loads'
  * `spectrum` fields, the `harmonics:` section with banks on named boards).
  * @throws {InputError} for a bank on an unknown board, two banks on one board, or a bank on a supply that is not three-phase
- * @throws {NumericalError} when a solve fails
+ * @throws {NumericalError} when a solve fails, or reason `collapsed` when a board's supply has collapsed
  */
 export function studyInstallationHarmonicsSpec(spec: HarmonicsInstallationSpec, options: HarmonicsOptions = {}): InstallationHarmonicsReport {
   const { installation, models, bankBoards } = resolveInstallationHarmonics(spec);
   const { fundamental, solved } = solveOrders(installation, models, options.solve);
+  // Harmonics of a collapsed state describe nothing that can exist (as the correction study refuses it).
+  assertViableSolutions(fundamental.boards);
   const main = fundamental.boards[0]!.board;
   const phaseNames = conventionsOf(main).phaseNames;
   const label = (term: string) => labelIn(phaseNames, term);

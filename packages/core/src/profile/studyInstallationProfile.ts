@@ -28,6 +28,7 @@ import { recordInterval, type IntervalFigures } from './solveBatch.js';
 import { profileClock, resolveLimits, type ProfileBankResult, type ProfileStudyOptions } from './studyProfile.js';
 import { summariseFigures, type ProfileSummary, type ResolvedLimits, type SummaryContext } from './summariseFigures.js';
 import { PROFILE_CAUTIONS } from './profileWording.js';
+import { clearInstallationRoundOff } from './installationRoundOff.js';
 
 export interface InstallationProfileInput {
   readonly installation: Installation;
@@ -139,6 +140,7 @@ export function studyInstallationProfile(input: InstallationProfileInput, option
   const before = allocateBoardFigures(installation, n);
   const net = compileInstallationBatch(installation, input.loads, input.loadBoards, input.drivers);
   solveInstallationBatch(net, input.columns, before, { onProgress: (d) => options.onProgress?.('solve', d, n) });
+  clearInstallationRoundOff(before);
 
   const meter = meterOf(boards[bankAt]!, input, options);
   // At the origin the circuit gains a load-free board at the supply's terminals (board 0): every board one on.
@@ -151,6 +153,7 @@ export function studyInstallationProfile(input: InstallationProfileInput, option
     if (shift) {
       const framed = allocateBoardFigures(frame, n);
       solveInstallationBatch(compileInstallationBatch(frame, input.loads, frameBoards, input.drivers), input.columns, framed);
+      clearInstallationRoundOff(framed);
       meterBefore = framed[0]!;
       // The origin is priced as the supply is: the main board's band and tariff, the origin's own (unrated) conductors.
       meterContext = { ...contexts[0]!, board: boardOfInstallation(frame, 0) };
@@ -177,7 +180,7 @@ export function studyInstallationProfile(input: InstallationProfileInput, option
         meterAfter = meter ? figures[meter.index]! : null;
         const at = bankAt + shift;
         const run = { board: boards[bankAt]!, figures: figures[at]!, ...(meterAfter ? { meter: meterAfter } : {}), utcMs: input.utcMs, intervalMs: input.intervalMs, steps, fixed, settings };
-        return switchBank(run, (extra) => {
+        const switched = switchBank(run, (extra) => {
           const withSteps = compileInstallationBatch(frame, input.loads, frameBoards, input.drivers, extra.map((e) => ({ ...e, board: at })));
           const kernel = createInstallationKernel(withSteps);
           const index = new Map(withSteps.edges.map((e, k) => [`${e.board}|${e.from}|${e.to}|${e.vNominal}`, k]));
@@ -192,6 +195,8 @@ export function studyInstallationProfile(input: InstallationProfileInput, option
             },
           };
         });
+        clearInstallationRoundOff(figures);
+        return switched;
       },
     },
     options,

@@ -90,8 +90,9 @@ export function sizeBank(board: Board, arrangement: BankSizing['arrangement'], s
 
   const perLine = target.definition === 'per-line';
   const method = perLine ? sizingMethod.perLine : options.share === 'equal' ? sizingMethod.equal(target.definition) : sizingMethod.proportional(target.definition);
-  if (start.result.totals.kW <= 0)
-    return finish(start, null, method, { status: 'infeasible', reasons: [start.result.totals.kW < 0 ? infeasibleReason.exporting : infeasibleReason.noLoad] });
+  if (start.result.totals.kW < 0) return finish(start, null, method, { status: 'infeasible', reasons: [infeasibleReason.exporting] });
+  // Nothing drawn, nothing to correct: the verdict the balancing compensator gives the same board (it was 'not reachable').
+  if (start.result.totals.kW === 0) return finish(start, null, method, { status: 'already-meets-target', reasons: [infeasibleReason.noLoad] });
   // The limit (most compensation before a line passes its upper bound) is wanted
   // even when nothing is needed: a light-load sizing caps the fixed part with it.
   if (perLine) {

@@ -1,0 +1,149 @@
+/**
+ * Installation files a hostile user or a practising engineer writes, through the built binary:
+ * control characters in board names on every text report, and the faults found in that pass.
+ */
+import { describe, expect, it } from 'vitest';
+import { runTrivar } from './runTrivar.js';
+
+const IDLE = 'test/fixtures/hostile/idle-plant-room.yaml';
+const IDLE_DATA = 'test/fixtures/hostile/idle-plant-room.csv';
+const noStack = (stderr: string) => expect(stderr).not.toMatch(/\n\s+at .+[:(]\d+/);
+const CONTROL = /[\u0000-\u0008\u000b-\u001f\u007f-\u009f\u202a-\u202e]/;
+
+/** A riser whose sub-board's name holds a bell, a right-to-left override and a NUL. */
+const controlNamed = JSON.stringify({
+  name: 'Riser',
+  supply: { system: 'three-phase-4wire', voltage: { lineToLine: 400 }, frequencyHz: 50, transformer: { kVA: 250, impedancePercent: 4, xOverR: 3 } },
+  boards: [
+    { name: 'Main', loads: [{ name: 'Lights', connection: 'A-N', kW: 2, pf: 0.95 }] },
+    { name: 'Plant\u0007room\u202e\u0000x', fedFrom: 'Main', feeder: { lengthM: 18, line: { mm2: 16 }, neutral: { mm2: 16 } }, loads: [{ name: 'Pump\u001b[2J', connection: 'C-N', kW: 6 }] },
+  ],
+});
+
+describe('control characters in board names', () => {
+  it('solve --all-boards shows the board escaped, and does not fail', () => {
+    const r = runTrivar(['solve', '-', '--all-boards'], controlNamed);
+    noStack(r.stderr);
+    expect(r.code).toBe(0);
+    expect(r.stdout).not.toMatch(CONTROL);
+    expect(r.stdout).toContain('━━ Plant\\u{7}room\\u{202E}\\0x (fed from Main) ━━');
+  });
+  it('harmonics (also --all-boards) and rebalance escape them in the text report', () => {
+    for (const args of [['harmonics', '-'], ['harmonics', '-', '--all-boards'], ['rebalance', '-']]) {
+      const r = runTrivar(args, controlNamed);
+      noStack(r.stderr);
+      expect(r.code).toBe(0);
+      expect(r.stdout).not.toMatch(CONTROL);
+      expect(r.stdout).toContain('Plant\\u{7}room\\u{202E}\\0x');
+    }
+    const all = runTrivar(['harmonics', '-', '--all-boards'], controlNamed);
+    expect(all.stdout).toContain('━━ Plant\\u{7}room\\u{202E}\\0x');
+  });
+});
+
+describe('a sub-board with nothing on: round-off is not data', () => {
+  it('solve --json: its feeder carries exactly 0 A and the board takes exactly 0 kW from its feeder', () => {
+    const r = runTrivar(['solve', IDLE, '--json']);
+    expect(r.code).toBe(0);
+    const result = JSON.parse(r.stdout);
+    const feeder = result.feeders.find((f: { board: string }) => f.board === 'Plant room');
+    expect(feeder.lines.map((l: { current: { magnitude: number } }) => l.current.magnitude)).toEqual([0, 0, 0]);
+    expect(feeder.lines.map((l: { loadingPercent: number }) => l.loadingPercent)).toEqual([0, 0, 0]);
+    expect(feeder.neutral.current.magnitude).toBe(0);
+    const board = result.boards.find((b: { name: string }) => b.name === 'Plant room').result;
+    expect(board.source).toEqual({ kW: 0, kvar: 0 });
+    // The loaded boards keep their figures: the main board's feeder carries what its board reads.
+    const main = result.boards[0].result;
+    expect(result.feeders[0].lines[0].current).toEqual(main.phases[0].current);
+    expect(main.source.kW).toBeGreaterThan(14.9);
+  });
+  it('profile: no current, energy, reactive energy or leading hours through it in any interval', () => {
+    const r = runTrivar(['profile', IDLE, '--data', IDLE_DATA, '--json']);
+    expect(r.code).toBe(0);
+    const plant = JSON.parse(r.stdout).boards.find((b: { board: string }) => b.board === 'Plant room').before;
+    expect(plant.conductors.map((c: { maxA: number }) => c.maxA)).toEqual([0, 0, 0, 0]);
+    expect(plant.energy.phases.map((p: { kWh: number; kvarh: number }) => [p.kWh, p.kvarh])).toEqual([[0, 0], [0, 0], [0, 0]]);
+    expect([plant.energy.kWhImport, plant.energy.kWhExport, plant.energy.kvarhLagging, plant.energy.kvarhLeading]).toEqual([0, 0, 0, 0]);
+    expect(plant.leadingHours).toBe(0);
+    // The flats' board is untouched: its feeder carries real current.
+    const floor = JSON.parse(r.stdout).boards.find((b: { board: string }) => b.board === 'Floor 1').before;
+    expect(floor.conductors[0].maxA).toBeGreaterThan(5);
+  });
+});
+
+/** A riser on a 10 kVA, 25 % transformer: every board's voltage collapses. Flats draw switch-mode current. */
+const collapsedRiser = `name: Collapsed riser
+supply: { system: three-phase-4wire, voltage: { lineToLine: 400 }, frequencyHz: 50, transformer: { kVA: 10, impedancePercent: 25, xOverR: 2 } }
+boards:
+  - { name: Main, loads: [{ name: Lift, connection: ABC-delta, kW: 11, pf: 0.82 }] }
+  - name: Floor 1
+    fedFrom: Main
+    feeder: { lengthM: 12, line: { mm2: 70 }, neutral: { mm2: 70 } }
+    loads:
+      - { name: Flat 1A, connection: A-N, kW: 6.2, pf: 0.96, spectrum: switch-mode }
+      - { name: Flat 1B, connection: B-N, kW: 3.1, pf: 0.97, spectrum: switch-mode }
+`;
+const collapsedBoard = `name: Collapsed board
+supply: { system: three-phase-4wire, voltage: { lineToLine: 400 }, frequencyHz: 50, transformer: { kVA: 10, impedancePercent: 25, xOverR: 2 } }
+loads:
+  - { name: a, connection: A-N, kW: 30, pf: 0.9, spectrum: switch-mode }
+  - { name: b, connection: B-N, kW: 20, pf: 0.9 }
+correction: { arrangement: delta-bank, target: { pf: 0.95 } }
+`;
+
+describe('a collapsed supply: studies refuse it, as correct does, and report still writes the report', () => {
+  it('harmonics of a collapsed installation or board: exit 4, the collapse named per board, no figures', () => {
+    const inst = runTrivar(['harmonics', '-'], collapsedRiser);
+    noStack(inst.stderr);
+    expect(inst.code).toBe(4);
+    expect(inst.stderr).toMatch(/no viable operating point.*Main: the board voltage has collapsed.*Floor 1: the board voltage has collapsed/);
+    expect(inst.stdout).toBe('');
+    const board = runTrivar(['harmonics', '-'], collapsedBoard);
+    expect(board.code).toBe(4);
+    expect(board.stderr).toMatch(/^error: no viable operating point: the supply cannot carry these loads: the board voltage has collapsed/);
+    expect(board.stdout).toBe('');
+  });
+  it('report of a collapsed file with harmonic data or a correction section: written, collapse stated first, exit 4', () => {
+    for (const text of [collapsedRiser, collapsedBoard]) {
+      const r = runTrivar(['report', '-'], text);
+      noStack(r.stderr);
+      expect(r.code).toBe(4);
+      expect(r.stdout).toContain('Supply collapse: the supply cannot carry these loads');
+      expect(r.stdout).toMatch(/<\/html>\s*$/);
+    }
+  });
+});
+
+describe('correction equipment on a board that draws nothing', () => {
+  it('every arrangement says nothing to do, with the reason, as the balancing compensator did (not "not reachable")', () => {
+    const r = runTrivar(['correct', IDLE, '--board', 'Plant room', '--json']);
+    expect(r.code).toBe(0);
+    const { comparison } = JSON.parse(r.stdout);
+    expect(comparison.outcomes.map((o: { arrangement: string; report: { status: string } }) => [o.arrangement, o.report.status])).toEqual([
+      ['star-bank', 'already-meets-target'],
+      ['delta-bank', 'already-meets-target'],
+      ['balancing-compensator', 'already-meets-target'],
+    ]);
+    const star = runTrivar(['correct', IDLE, '--board', 'Plant room', '--arrangement', 'star-bank']);
+    expect(star.code).toBe(0);
+    expect(star.stdout).toMatch(/NOTHING TO DO[^\n]*\n[^\n]*\n {2}- the board draws no active power \(every load is zero or off\), so there is nothing to correct/);
+    expect(star.stdout).not.toMatch(/NOT REACHABLE/);
+  });
+});
+
+describe('a sub-board written without a feeder', () => {
+  it('is said to be taken as of no impedance in the text report and the JSON, not left silent', () => {
+    const text = `name: Busbar section
+supply: { system: three-phase-4wire, voltage: { lineToLine: 400 }, frequencyHz: 50, transformer: { kVA: 250, impedancePercent: 4, xOverR: 3 } }
+boards:
+  - { name: Main, feeder: { lengthM: 30, line: { mm2: 120 }, neutral: { mm2: 120 } }, loads: [{ name: Lights, connection: A-N, kW: 2 }] }
+  - { name: Section 2, fedFrom: Main, loads: [{ name: Heater, connection: B-N, kW: 3 }] }
+`;
+    const r = runTrivar(['solve', '-'], text);
+    expect(r.code).toBe(0);
+    expect(r.stdout).toContain('  cable to Section 2: none entered (zero impedance)');
+    const json = JSON.parse(runTrivar(['solve', '-', '--json'], text).stdout);
+    expect(json.feeders.map((f: { description: string | null }) => f.description)).toEqual(['120 mm² Cu, 30 m at 70 °C', 'none entered (zero impedance)']);
+    expect(json.feeders[1].lossesKW).toBe(0);
+  });
+});
