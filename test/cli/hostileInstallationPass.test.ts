@@ -65,6 +65,13 @@ describe('a sub-board with nothing on: round-off is not data', () => {
     expect(plant.energy.phases.map((p: { kWh: number; kvarh: number }) => [p.kWh, p.kvarh])).toEqual([[0, 0], [0, 0], [0, 0]]);
     expect([plant.energy.kWhImport, plant.energy.kWhExport, plant.energy.kvarhLagging, plant.energy.kvarhLeading]).toEqual([0, 0, 0, 0]);
     expect(plant.leadingHours).toBe(0);
+    // Nothing imported: no billing power factor (it read 1 before, a perfect figure beside 0 kWh), in the data and the text.
+    expect(plant.energy.billingPf).toBeNull();
+    expect(plant.months.every((m: { billingPf: number | null }) => m.billingPf === null)).toBe(true);
+    const text = runTrivar(['profile', IDLE, '--data', IDLE_DATA]).stdout;
+    const block = text.slice(text.indexOf('Plant room'));
+    expect(block).toMatch(/billing power factor none \(no energy imported\)/);
+    expect(text).not.toMatch(/billing power factor 1\.000/);
     // The flats' board is untouched: its feeder carries real current.
     const floor = JSON.parse(r.stdout).boards.find((b: { board: string }) => b.board === 'Floor 1').before;
     expect(floor.conductors[0].maxA).toBeGreaterThan(5);

@@ -140,6 +140,7 @@ export { arrangementDescriptions, arrangementNames, CORRECTION_CAUTIONS, meterin
 export type { ProfileSpec, ScenarioSpec, TariffSpec, ProfileBankSpec, BankStepSpec, ProfileLimitsSpec } from './profile/profileSpec.js';
 export { profileSpecSchema } from './profile/profileSpec.js';
 export { PROFILE_DEFAULTS } from './profile/profileDefaults.js';
+export { billingPowerFactor, billingPowerFactorText } from './profile/billingPowerFactor.js';
 export type { BatchNetwork, BatchEdge, DriverSpec, DriverColumns } from './profile/batchNetwork.js';
 export { compileBatchNetwork, edgePowersAt } from './profile/batchNetwork.js';
 export type { BatchKernel, IntervalState, KernelOptions } from './profile/batchKernel.js';

@@ -1,5 +1,5 @@
 /** InstallationProfileResult → the text report of `trivar profile` on an installation file. */
-import { labellerOf, type InstallationProfileBoard, type InstallationProfileResult, type InstallationScenarioResult, type PhaseLabeller } from '@trivar/core';
+import { billingPowerFactorText, labellerOf, type InstallationProfileBoard, type InstallationProfileResult, type InstallationScenarioResult, type PhaseLabeller } from '@trivar/core';
 import {
   bankLines,
   currentTable,
@@ -66,7 +66,7 @@ function boardSection(b: InstallationProfileBoard, label: PhaseLabeller): string
     section(`${b.board} — phase voltage at the board (% of nominal)`),
     voltageTable(b.before, label),
     ...thresholdLines(b.before, b),
-    `  energy through the board: ${Math.round(b.before.energy.kWhImport).toLocaleString('en-US')} kWh imported, billing power factor ${fixed(b.before.energy.billingPf, 3)}`,
+    `  energy through the board: ${Math.round(b.before.energy.kWhImport).toLocaleString('en-US')} kWh imported, billing power factor ${billingPowerFactorText(b.before.energy.billingPf)}`,
   ];
 }
 
@@ -91,11 +91,11 @@ export function renderInstallationProfileReport(r: InstallationProfileResult, cu
     const meter = r.bank.meter;
     if (meter)
       parts.push(
-        `  the controller measures ${meter.point === 'origin' ? "at the origin (the supply's terminals, before the service cable)" : `at the incomer of ${meter.point}`}, not at ${r.bank.board}: billing power factor there ${fixed(meter.before.energy.billingPf, 3)} → ${fixed(meter.after.energy.billingPf, 3)}, lagging kvarh ${Math.round(meter.before.energy.kvarhLagging).toLocaleString('en-US')} → ${Math.round(meter.after.energy.kvarhLagging).toLocaleString('en-US')}`,
+        `  the controller measures ${meter.point === 'origin' ? "at the origin (the supply's terminals, before the service cable)" : `at the incomer of ${meter.point}`}, not at ${r.bank.board}: billing power factor there ${billingPowerFactorText(meter.before.energy.billingPf)} → ${billingPowerFactorText(meter.after.energy.billingPf)}, lagging kvarh ${Math.round(meter.before.energy.kvarhLagging).toLocaleString('en-US')} → ${Math.round(meter.after.energy.kvarhLagging).toLocaleString('en-US')}`,
       );
     if (bankBoard !== main)
       parts.push(
-        `  at the supply (${main.board}): billing power factor ${fixed(main.before.energy.billingPf, 3)} → ${fixed(main.after!.energy.billingPf, 3)}; peak line current ${fixed(Math.max(...main.before.conductors.filter((c) => c.conductor !== 'N').map((c) => c.maxA)), 1)} A → ${fixed(Math.max(...main.after!.conductors.filter((c) => c.conductor !== 'N').map((c) => c.maxA)), 1)} A`,
+        `  at the supply (${main.board}): billing power factor ${billingPowerFactorText(main.before.energy.billingPf)} → ${billingPowerFactorText(main.after!.energy.billingPf)}; peak line current ${fixed(Math.max(...main.before.conductors.filter((c) => c.conductor !== 'N').map((c) => c.maxA)), 1)} A → ${fixed(Math.max(...main.after!.conductors.filter((c) => c.conductor !== 'N').map((c) => c.maxA)), 1)} A`,
       );
   }
   parts.push(section('Cautions'), ...r.cautions.map((c) => `  - ${c}`));

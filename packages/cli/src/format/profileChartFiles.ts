@@ -5,6 +5,7 @@
  * beside it (peak current, billing power factor), so a chart can be read back against them.
  */
 import {
+  billingPowerFactorText,
   labellerOf,
   renderDurationChart,
   renderTimeChart,
@@ -80,8 +81,8 @@ function writeBoardCharts(c: BoardCharts, write: (name: string, text: string) =>
   ];
   write('currents.svg', renderTimeChart({ title: `${c.board}: line and neutral current${c.currentsAt}`, unit: 'A', series: currents, labelOf: c.label }));
   const pf = [
-    { name: `before (billing PF ${fixed(c.summary.energy.billingPf, 3)})`, values: dailyPf(f, c.label) },
-    ...(c.after && c.afterSummary ? [{ name: `with bank (billing PF ${fixed(c.afterSummary.energy.billingPf, 3)})`, values: dailyPf(c.after, c.label) }] : []),
+    { name: `before (billing PF ${billingPowerFactorText(c.summary.energy.billingPf)})`, values: dailyPf(f, c.label) },
+    ...(c.after && c.afterSummary ? [{ name: `with bank (billing PF ${billingPowerFactorText(c.afterSummary.energy.billingPf)})`, values: dailyPf(c.after, c.label) }] : []),
   ];
   write('power-factor.svg', renderTimeChart({ title: `${c.board}: power factor of each day's energy (below zero = leading)`, unit: 'PF', series: pf, labelOf: c.label, mode: 'mean', yRange: pfRange(pf) }));
   write('load-duration.svg', renderDurationChart({ title: `${c.board}: load-duration curves${c.currentsAt}`, unit: 'A', series: currents, intervalHours: c.intervalSeconds / 3600 }));

@@ -1,5 +1,5 @@
 /** ProfileResult → the text report of `trivar profile`. */
-import { labellerOf, type PhaseLabeller, type ProfileResult, type ProfileSummary, type ScenarioResult, type BoardScenarios } from '@trivar/core';
+import { billingPowerFactorText, labellerOf, type PhaseLabeller, type ProfileResult, type ProfileSummary, type ScenarioResult, type BoardScenarios } from '@trivar/core';
 import { fixed, renderTable, section } from './textTable.js';
 
 const hours = (h: number) => (h === 0 ? '0' : h < 10 ? fixed(h, 2) : fixed(h, 1));
@@ -67,7 +67,7 @@ export function energyTable(s: ProfileSummary, label: PhaseLabeller): string {
   const rows = s.energy.phases.map((p) => [`line ${label(p.phase)}`, thousands(p.kWh), thousands(p.kvarh)]);
   rows.push(['board, imported', thousands(s.energy.kWhImport), thousands(s.energy.kvarhLagging) + ' lag']);
   if (s.energy.kWhExport > 0 || s.energy.kvarhLeading > 0) rows.push(['board, exported / leading', thousands(s.energy.kWhExport), thousands(s.energy.kvarhLeading) + ' lead']);
-  return `${renderTable([{ header: '', align: 'left' }, { header: 'kWh' }, { header: 'kvarh' }], rows)}\n  billing power factor over the period: ${fixed(s.energy.billingPf, 3)}`;
+  return `${renderTable([{ header: '', align: 'left' }, { header: 'kWh' }, { header: 'kvarh' }], rows)}\n  billing power factor over the period: ${billingPowerFactorText(s.energy.billingPf)}`;
 }
 
 export function monthTable(s: ProfileSummary, after: ProfileSummary | null, currency: string): string {
@@ -88,8 +88,8 @@ export function monthTable(s: ProfileSummary, after: ProfileSummary | null, curr
       m.month,
       thousands(m.kWhImport),
       thousands(m.kvarhLagging),
-      fixed(m.billingPf, 3),
-      ...(a ? [fixed(a.billingPf, 3)] : []),
+      billingPowerFactorText(m.billingPf, true),
+      ...(a ? [billingPowerFactorText(a.billingPf, true)] : []),
       fixed(m.peakKVA, 1),
       money(m.reactiveCharge),
       ...(a ? [money(a.reactiveCharge)] : []),
@@ -134,7 +134,7 @@ export function bankLines(r: { readonly bank: ProfileResult['bank']; readonly be
     `  typical limit ${thousands(b.operationsPerYearLimit)} operations a year per step (IEC 60831-1 practice); a capacitor contactor lasts about ${thousands(b.contactorLifeOperations)} operations${
       b.yearsToContactorLife === null ? '' : ` — the busiest step reaches that in ${fixed(b.yearsToContactorLife, 1)} years`
     }`,
-    `  billing power factor ${fixed(r.before.energy.billingPf, 3)} → ${fixed(b.after.energy.billingPf, 3)}; leading import ${hours(r.before.leadingHours)} h → ${hours(b.after.leadingHours)} h`,
+    `  billing power factor ${billingPowerFactorText(r.before.energy.billingPf)} → ${billingPowerFactorText(b.after.energy.billingPf)}; leading import ${hours(r.before.leadingHours)} h → ${hours(b.after.leadingHours)} h`,
     ...(b.belowTarget && b.belowTarget.hours > 0
       ? [
           `  board PF below ${pf(set.targetPf)} with the bank: ${hours(b.belowTarget.hours)} h of import, ${hours(b.belowTarget.stepTooCoarseHours)} h of them with no step small enough to stay under ${pf(set.upperPf!)} (steps coarse for this band at that load)`,
@@ -208,7 +208,7 @@ export function scenarioTable(r: BoardScenarios, label: PhaseLabeller = LETTERED
 
 /** The year weighed by the scenarios' hours, in one line. */
 export const scenarioYearLine = (r: BoardScenarios): string =>
-  `  over the year: ${thousands(r.kWhImport)} kWh imported, ${thousands(r.kvarhLagging)} kvarh lagging, billing power factor ${fixed(r.billingPf, 3)}`;
+  `  over the year: ${thousands(r.kWhImport)} kWh imported, ${thousands(r.kvarhLagging)} kvarh lagging, billing power factor ${billingPowerFactorText(r.billingPf)}`;
 
 /** A line per scenario and conductor above its rating; `where` goes before each (a board's name and a colon, or ''). */
 export function scenarioOverRating(r: BoardScenarios, label: PhaseLabeller = LETTERED, where = ''): string[] {

@@ -9,6 +9,7 @@
  */
 import type { TariffSpec } from './profileSpec.js';
 import { PROFILE_DEFAULTS } from './profileDefaults.js';
+import { billingPowerFactor } from './billingPowerFactor.js';
 
 export interface MonthReading {
   /** "2025-03", in the study's time zone. */
@@ -18,8 +19,8 @@ export interface MonthReading {
   readonly kWhExport: number;
   readonly kvarhLagging: number;
   readonly kvarhLeading: number;
-  /** kWhImport / √(kWhImport² + kvarhLagging²); 1 when nothing was imported. */
-  readonly billingPf: number;
+  /** kWhImport / √(kWhImport² + kvarhLagging²); null when nothing was imported. */
+  readonly billingPf: number | null;
   /** kvarhLagging / kWhImport. */
   readonly tanPhi: number;
   /** Highest window-average kVA of the month. */
@@ -94,7 +95,7 @@ export function billMonths(input: MonthlyInput, tariff: TariffSpec | undefined):
       wn++;
     }
     closeWindow();
-    const billingPf = kWhImport > 0 ? kWhImport / Math.hypot(kWhImport, lag) : 1;
+    const billingPf = billingPowerFactor(kWhImport, lag);
     const reactive = tariff?.reactive;
     const chargeable = reactive ? Math.max(0, lag - reactive.tanPhiAllowance * kWhImport) : null;
     out.push({

@@ -13,6 +13,7 @@ import { compileBatchNetwork, type DriverSpec } from './batchNetwork.js';
 import { ratedPower } from './columnPlan.js';
 import type { ProfileSpec, ScenarioSpec } from './profileSpec.js';
 import { allocateFigures, solveBatch, type IntervalFigures } from './solveBatch.js';
+import { billingPowerFactor } from './billingPowerFactor.js';
 
 export interface ScenarioReading {
   readonly name: string;
@@ -32,7 +33,8 @@ export interface BoardScenarios {
   readonly scenarios: readonly ScenarioReading[];
   readonly kWhImport: number;
   readonly kvarhLagging: number;
-  readonly billingPf: number;
+  /** Over the year; null when nothing was imported. */
+  readonly billingPf: number | null;
   readonly lineRatingA: number | null;
   readonly neutralRatingA: number | null;
 }
@@ -105,7 +107,7 @@ export function readBoardScenarios(board: Board, figures: IntervalFigures, scena
     scenarios: readings,
     kWhImport,
     kvarhLagging,
-    billingPf: kWhImport > 0 ? kWhImport / Math.hypot(kWhImport, kvarhLagging) : 1,
+    billingPf: billingPowerFactor(kWhImport, kvarhLagging),
     lineRatingA: board.lineRatingA,
     neutralRatingA: board.neutralRatingA,
   };

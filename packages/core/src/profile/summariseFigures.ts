@@ -8,6 +8,7 @@ import type { IntervalFigures } from './solveBatch.js';
 import { countWhere, maximumOf, minimumOf, percentilesOf, topIndices } from './intervalStatistics.js';
 import { billMonths, type MonthReading } from './monthlyBilling.js';
 import type { TariffSpec } from './profileSpec.js';
+import { billingPowerFactor } from './billingPowerFactor.js';
 
 export interface ConductorSummary {
   /** A, B, C or N. */
@@ -61,7 +62,8 @@ export interface ProfileSummary {
     readonly kWhExport: number;
     readonly kvarhLagging: number;
     readonly kvarhLeading: number;
-    readonly billingPf: number;
+    /** kWhImport / √(kWhImport² + kvarhLagging²); null when nothing was imported. */
+    readonly billingPf: number | null;
   };
   /** Hours in which the board imports power at a leading power factor. */
   readonly leadingHours: number;
@@ -174,7 +176,7 @@ export function summariseFigures(f: IntervalFigures, ctx: SummaryContext): Profi
       kWhExport: sumOf((m) => m.kWhExport),
       kvarhLagging,
       kvarhLeading: sumOf((m) => m.kvarhLeading),
-      billingPf: kWhImport > 0 ? kWhImport / Math.hypot(kWhImport, kvarhLagging) : 1,
+      billingPf: billingPowerFactor(kWhImport, kvarhLagging),
     },
     leadingHours: countWhere(n, (i) => totalW[i]! > 0 && totalVar[i]! < -varFloor) * h,
     months: months.map((m) => ({ ...m, peakAt: ctx.labelUtc(m.peakAtUtcMs) })),

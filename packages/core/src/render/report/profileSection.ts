@@ -7,6 +7,7 @@ import type { ProfileBankResult, ProfileResult } from '../../profile/studyProfil
 import type { InstallationProfileResult } from '../../profile/studyInstallationProfile.js';
 import type { ProfileSummary, ResolvedLimits } from '../../profile/summariseFigures.js';
 import { fixed } from '../svgText.js';
+import { billingPowerFactorText } from '../../profile/billingPowerFactor.js';
 import type { ReportBlock, ReportSection } from './reportDocument.js';
 import { labellerOf, type PhaseNaming } from '../../board/conventions/phaseNames.js';
 
@@ -45,7 +46,7 @@ function boardBlocks(p: BoardProfileView, charts: readonly ProfileChart[], namin
         ['Intervals', intervalWords(p)],
         ['Energy imported / exported', `${fixed(s.energy.kWhImport, 0)} kWh / ${fixed(s.energy.kWhExport, 0)} kWh`],
         ['Reactive energy lagging / leading', `${fixed(s.energy.kvarhLagging, 0)} kvarh / ${fixed(s.energy.kvarhLeading, 0)} kvarh`],
-        ['Billing power factor', fixed(s.energy.billingPf, 3)],
+        ['Billing power factor', billingPowerFactorText(s.energy.billingPf)],
         ['Hours importing at a leading PF', fixed(s.leadingHours, 1)],
         ...((s.unbalance ? [['Voltage unbalance, highest / 95th percentile', `${fixed(s.unbalance.maxPercent, 2)} % (${s.unbalance.maxAt}) / ${fixed(s.unbalance.p95Percent, 2)} %`]] : []) as [string, string][]),
         [`Hours below ${limitPercent(p.limits.voltageLowPercent)} % / above ${limitPercent(p.limits.voltageHighPercent)} % (${bandWords(p.limits)})`, `${fixed(s.hoursVoltageLow, 1)} / ${fixed(s.hoursVoltageHigh, 1)}`],
@@ -74,7 +75,7 @@ function bankBlock(b: ProfileBankResult, where = ''): ReportBlock {
     kind: 'facts',
     items: [
       ['Automatic bank simulated', `${fixed(b.totalKvar, 1)} kvar in ${b.steps.length} steps${where}${b.sizedFromProfile ? ' (sized from the profile)' : ''}`],
-      ['Billing power factor with the bank', fixed(b.after.energy.billingPf, 3)],
+      ['Billing power factor with the bank', billingPowerFactorText(b.after.energy.billingPf)],
       ['Hours leading with the bank', fixed(b.after.leadingHours, 1)],
       ['Largest voltage rise from the bank', `${fixed(b.voltageRisePercent, 2)} % (${b.voltageRiseAt})`],
       ['Busiest contactor reaches its typical life in', b.yearsToContactorLife === null ? '—' : `${fixed(b.yearsToContactorLife, 1)} years`],
@@ -146,7 +147,7 @@ export function installationProfileSections(
       overview.push({
         kind: 'facts',
         items: [
-          [`At the supply (${main.board}): billing power factor`, `${fixed(main.before.energy.billingPf, 3)} → ${fixed(main.after.energy.billingPf, 3)}`],
+          [`At the supply (${main.board}): billing power factor`, `${billingPowerFactorText(main.before.energy.billingPf)} → ${billingPowerFactorText(main.after.energy.billingPf)}`],
           [`At the supply (${main.board}): highest line current`, `${fixed(peakLine(main.before), 1)} A → ${fixed(peakLine(main.after), 1)} A`],
         ],
       });
@@ -156,7 +157,7 @@ export function installationProfileSections(
     const id = `profile-${ids.get(b.board)!}`;
     const where = b.fedFrom === null ? 'the supply to the main board' : `the feeder from ${b.fedFrom}`;
     const blocks = boardBlocks({ ...r, limits: b.limits, before: b.before, currentsCaption: `Currents in ${where} over the period` }, charts.boards.get(b.board) ?? [], naming, `${id}-`);
-    if (b.after && r.bank) blocks.push({ kind: 'facts', items: [[`Billing power factor with the bank on ${r.bank.board}`, fixed(b.after.energy.billingPf, 3)]] });
+    if (b.after && r.bank) blocks.push({ kind: 'facts', items: [[`Billing power factor with the bank on ${r.bank.board}`, billingPowerFactorText(b.after.energy.billingPf)]] });
     return { id, title: `Load over time — ${b.board}`, blocks };
   });
   return [{ id: 'profile', title: 'Load over time', blocks: overview }, ...boards];

@@ -1,0 +1,15 @@
+/**
+ * The billing power factor of a period, kWh / √(kWh² + kvarh²) over imported energy and lagging
+ * reactive energy (as a tariff meter totals them). Where nothing was imported it is undefined,
+ * not 1: a board that drew nothing has no power factor to bill, and a 1.000 beside 0 kWh would
+ * read as a perfect result.
+ */
+export function billingPowerFactor(kWhImport: number, kvarhLagging: number): number | null {
+  return kWhImport > 0 ? kWhImport / Math.hypot(kWhImport, kvarhLagging) : null;
+}
+
+/** How a billing power factor reads in text: three decimals, or why there is none. */
+export function billingPowerFactorText(pf: number | null, short = false): string {
+  if (pf !== null) return pf.toFixed(3);
+  return short ? '-' : 'none (no energy imported)';
+}
