@@ -136,6 +136,15 @@ describe('correction equipment on a board that draws nothing', () => {
     expect(star.stdout).toMatch(/NOTHING TO DO[^\n]*\n[^\n]*\n {2}- the board draws no active power \(every load is zero or off\), so there is nothing to correct/);
     expect(star.stdout).not.toMatch(/NOT REACHABLE/);
   });
+  it('no line carries current, so there is no PF after to show (it read 1.000 beside "no current")', () => {
+    const r = runTrivar(['correct', IDLE, '--board', 'Plant room', '--json']);
+    const { comparison } = JSON.parse(r.stdout);
+    for (const o of comparison.outcomes) expect([o.figures.lowestLinePf, o.figures.targetPfAfter]).toEqual([null, null]);
+    const text = runTrivar(['correct', IDLE, '--board', 'Plant room']).stdout;
+    const rows = text.split('\n').filter((l) => /^ {2}(star bank|delta bank|compensator) +nothing to do/.test(l));
+    expect(rows).toHaveLength(3);
+    for (const row of rows) expect(row.trim().split(/ {2,}/)[6]).toBe('-');
+  });
 });
 
 describe('a sub-board written without a feeder', () => {

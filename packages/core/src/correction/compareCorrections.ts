@@ -30,8 +30,8 @@ export interface ArrangementFigures {
   readonly switchedSteps: number;
   /** Reactor kvar the arrangement needs (balancing compensator only). */
   readonly reactorKvar: number;
-  /** Lowest line PF after correction, with its sense. */
-  readonly lowestLinePf: number;
+  /** Lowest line PF after correction (null where no line carries current: there is no PF to read). */
+  readonly lowestLinePf: number | null;
   /** The PF the target is defined on, after (null where not defined). */
   readonly targetPfAfter: number | null;
   readonly neutralCurrentA: number | null;
@@ -86,11 +86,13 @@ export function figuresOf(r: CorrectionReport): ArrangementFigures {
   const sel = r.selection;
   const reactorKvar = v.equipment.flatMap((g) => g.branches).reduce((s, b) => s + (b.susceptanceS < 0 ? Math.abs(kvarFromSusceptance(b.susceptanceS, b.vNominal)) : 0), 0);
   // Judged where the target is measured (the board, or its metering point).
-  const lowest = (v.metering?.after ?? v.after).phases.reduce((a, p) => (p.pf !== null && p.pf < a ? p.pf : a), 1);
+  const linePfs = (v.metering?.after ?? v.after).phases.flatMap((p) => (p.pf === null ? [] : [p.pf]));
+  const lowest = linePfs.length === 0 ? null : Math.min(...linePfs);
   const def = r.target.definition;
   const pf = v.metering?.powerFactor ?? v.powerFactor;
+  // No line current: no power factor of any definition to read (the board-wide ones default to 1 there).
   const targetPfAfter =
-    def === 'per-line' ? lowest : def === 'effective' ? (pf.effective?.after ?? null) : def === 'positive-sequence' ? (pf.positiveSequence?.after ?? null) : def === 'vector' ? pf.vector.after : pf.arithmetic.after;
+    lowest === null ? null : def === 'per-line' ? lowest : def === 'effective' ? (pf.effective?.after ?? null) : def === 'positive-sequence' ? (pf.positiveSequence?.after ?? null) : def === 'vector' ? pf.vector.after : pf.arithmetic.after;
   return {
     deliveredKvar: sel?.deliveredKvar ?? 0,
     nameplateKvar: sel?.nameplateKvar ?? 0,
