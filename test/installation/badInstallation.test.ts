@@ -122,6 +122,13 @@ describe('bad installation input', () => {
     expect(issue!.message).toMatch(wording);
     expect(() => solveInstallation(input)).toThrow(InputError);
   });
+  it('two boards of one name: the duplicate alone, not a "loop" that only echoes it', () => {
+    // Floor 2 renamed Main and fed from Floor 1: read by name, Main → Floor 1 → Main looks like a loop.
+    const result = validateInstallation(editInstallation((b) => (b.boards[2].name = 'Main')));
+    expect(result.ok).toBe(false);
+    if (result.ok) return;
+    expect(result.issues.map((i) => [i.code, i.path])).toEqual([['duplicate', 'boards[2].name']]);
+  });
   it.each(supplyCases)('%s', (_, input, code, path) => {
     const result = validateBoard(input);
     expect(result.ok).toBe(false);

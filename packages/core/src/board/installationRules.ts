@@ -37,10 +37,13 @@ function moved(issue: InputIssue, prefix: string): InputIssue {
 function ruleTree(spec: InstallationBaseSpec): InputIssue[] {
   const issues: InputIssue[] = [];
   const index = new Map<string, number>();
+  let duplicated = false;
   spec.boards.forEach((b, i) => {
     const first = index.get(b.name);
-    if (first !== undefined) issues.push(inputIssue('duplicate', `boards[${i}].name`, `a name not already used (boards[${first}] has it)`, b.name));
-    else index.set(b.name, i);
+    if (first !== undefined) {
+      duplicated = true;
+      issues.push(inputIssue('duplicate', `boards[${i}].name`, `a name not already used (boards[${first}] has it)`, b.name));
+    } else index.set(b.name, i);
   });
   const mains = spec.boards.flatMap((b, i) => (b.fedFrom === undefined ? [i] : []));
   if (mains.length === 0) issues.push(inputIssue('missing', 'boards', 'one main board with no fedFrom: the board the supply feeds'));
@@ -58,7 +61,9 @@ function ruleTree(spec: InstallationBaseSpec): InputIssue[] {
       issues.push(inputIssue('unknown_board', `boards[${i}].fedFrom`, `the name of a board in this installation, exactly as written: ${names.map((n) => JSON.stringify(n)).join(', ')}${hint}`, b.fedFrom));
       return;
     }
-    // Walk towards the supply; coming back to this board means a loop.
+    // Walk towards the supply; coming back to this board means a loop. Not while two boards share a
+    // name: which one a fedFrom means is unknown, and the "loop" found would only echo the duplicate.
+    if (duplicated) return;
     const seen = [b.name];
     let at = b.fedFrom;
     for (let steps = 0; steps <= spec.boards.length; steps++) {
