@@ -31,6 +31,14 @@ const issuesOf = (input: unknown): InputIssue[] => {
 /** A/B/C phase words: a lone capital A, B or C, or one in a connection or line pair. */
 const LETTERED = /\b[ABC]-[ABCN]\b|\bABC-(star|delta)\b|(?<![\w[])[ABC](?=[,)"]|$)/;
 
+/** What the CLI writes to standard error for a file it refuses (exit 3), the file given as text. */
+async function errorsOf(argv: string[], text: string): Promise<string> {
+  const err: string[] = [];
+  const io: CliIo = { stdout: () => undefined, stderr: (t) => void err.push(t), readSource: async () => text, isTty: false };
+  expect(await runCli(argv, io)).toBe(3);
+  return err.join('');
+}
+
 describe('issues in a file written in L1/L2/L3', () => {
   it('a per-phase field on a phase the supply lacks: path, listed phases and the key received', () => {
     const issues = issuesOf(edit((b) => (b.supply.emf = { L1: { V: 120, angleDeg: 0 }, L2: { V: 120, angleDeg: 180 }, L3: { V: 120, angleDeg: 90 } })));
@@ -117,12 +125,6 @@ describe('study sections of a file written in L1/L2/L3', () => {
       '  - { name: laundry, connection: L2-N, kW: 0.9, pf: 0.8 }',
       extra,
     ].join('\n');
-  async function errorsOf(argv: string[], text: string): Promise<string> {
-    const err: string[] = [];
-    const io: CliIo = { stdout: () => undefined, stderr: (t) => void err.push(t), readSource: async () => text, isTty: false };
-    expect(await runCli(argv, io)).toBe(3);
-    return err.join('');
-  }
 
   it('a per-line correction target on a phase the board lacks', async () => {
     const err = await errorsOf(['correct', 'b.yaml'], yaml('correction: { target: { definition: per-line, perPhase: { L3: 0.95 } } }'));
@@ -149,12 +151,6 @@ describe('names the user gave stay as written in a file in L1/L2/L3', () => {
       '  - { name: C, connection: L2-N, kW: 1.0, pf: 0.9 }',
       ...extra,
     ].join('\n');
-  async function errorsOf(argv: string[], text: string): Promise<string> {
-    const err: string[] = [];
-    const io: CliIo = { stdout: () => undefined, stderr: (t) => void err.push(t), readSource: async () => text, isTty: false };
-    expect(await runCli(argv, io)).toBe(3);
-    return err.join('');
-  }
 
   it('a rebalancing condition keyed by a circuit named B', async () => {
     const err = await errorsOf(['rebalance', 'b.yaml'], lines(['rebalance:', '  conditions: [ { name: evening, circuits: { B: -0.5, C: 1 } } ]']));
