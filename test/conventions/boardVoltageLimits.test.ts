@@ -74,7 +74,7 @@ describe('bad per-board limits', () => {
     { limits: 7, code: 'invalid_value', path: 'boards[5].voltageLimits', words: 'or an object' },
     { limits: { underPercent: 60, overPercent: 5 }, code: 'out_of_range', path: 'boards[5].voltageLimits.underPercent', words: '<= 50' },
     { limits: { underPercent: 5 }, code: 'missing', path: 'boards[5].voltageLimits.overPercent', words: 'a number' },
-    { limits: { underPercent: 5, overPercent: 5, band: 3 }, code: 'unknown_key', path: 'boards[5].voltageLimits.band', words: 'documented keys' },
+    { limits: { underPercent: 5, overPercent: 5, band: 3 }, code: 'unknown_key', path: 'boards[5].voltageLimits.band', words: 'keys taken here ("underPercent", "overPercent")' },
   ])('$path: $code', ({ limits, code, path, words }) => {
     const result = validateInstallation(riser({ 'Floor 4': limits }));
     expect(result.ok).toBe(false);

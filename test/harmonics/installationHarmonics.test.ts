@@ -346,7 +346,7 @@ describe('bad input to the installation harmonic study', () => {
     ['a bank on a board the installation does not have', { banks: [{ ...bank, board: 'Barn' }] }, 'unknown_board', 'harmonics.banks[0].board', /"Main", "Shed"/],
     ['two banks on one board', { banks: [{ ...bank, board: 'Shed' }, { ...bank, board: 'Shed' }] }, 'duplicate', 'harmonics.banks[1].board', /harmonics\.banks\[0\]/],
     ['a bank without its board', { banks: [bank] }, 'missing', 'harmonics.banks[0].board', /board/],
-    ['a board file’s single bank in an installation', { bank }, 'unknown_key', 'harmonics.bank', /documented keys/],
+    ['a board file’s single bank in an installation', { bank }, 'unknown_key', 'harmonics.bank', /keys taken here \(.*\); nearest: "banks"/],
     ['a step of no output', { banks: [{ ...bank, board: 'Shed', stepsKvar: [0] }] }, 'out_of_range', 'harmonics.banks[0].stepsKvar[0]', /0/],
   ])('%s', (_what, harmonics, code, path, words) => {
     const issues = issuesOf(base(harmonics));

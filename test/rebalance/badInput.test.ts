@@ -50,7 +50,7 @@ describe('rebalance: bad studies', () => {
     ['a condition naming no circuit', fourWire, { conditions: [{ name: 'night', circuits: { Kettle: 0.5 } }] }, 'unknown_circuit', 'conditions[0].circuits.Kettle', /name of a circuit/],
     ['an unbalance aim on a split-phase board', splitPhase, { aim: { currentUnbalance: 1 } }, 'not_applicable', 'aim.currentUnbalance', /three-phase/],
     ['an aim of all zeros', fourWire, { aim: { largestLine: 0 } }, 'out_of_range', 'aim', /at least one figure/],
-    ['an unknown key', fourWire, { movelimit: 2 }, 'unknown_key', 'movelimit', /documented keys/],
+    ['an unknown key', fourWire, { movelimit: 2 }, 'unknown_key', 'movelimit', /nearest: "moveLimit"/],
   ] as const)('%s', (_, spec, study, code, path, wording) => {
     const issues = issuesOf(spec, study);
     expect(issues[0]).toMatchObject({ code, path });

@@ -6,8 +6,11 @@
 import type { core, ZodType } from 'zod';
 import { formatPath, InputError, inputIssue, type InputIssue } from '../errors.js';
 import { ONE_SHOT_PARSE } from './oneShotParse.js';
+import { acceptedKeysAt, nearestKey } from './acceptedKeys.js';
 
 const DOCUMENTED_KEYS = 'only the documented keys (see the JSON Schema: `trivar schema`, or `trivar schema --installation`)';
+/** Longer lists of keys are cut here: the JSON Schema has them all. */
+const KEYS_LISTED = 24;
 /** YAML 1.2 has no merge keys; read as 1.1 they would also change numbers (see readBoardText.ts). */
 const MERGE_KEY = 'no YAML merge key: files are read as YAML 1.2, where "<<" is an ordinary key; write the fields out, or reuse a whole value with an alias (*name)';
 
@@ -47,7 +50,31 @@ function valueAt(root: unknown, path: readonly PropertyKey[]): unknown {
   return node;
 }
 
-export function inputIssuesFromZod(issues: readonly core.$ZodIssue[], root: unknown, prefix: readonly PropertyKey[] = []): InputIssue[] {
+/** What an unknown key's error can name: the schema the whole input was parsed with, and that input. */
+export interface ParsedWith {
+  readonly schema: ZodType;
+  readonly input: unknown;
+}
+
+/**
+ * "one of the keys taken here ("lengthM", "line", …); nearest: "lengthM"" when the schema
+ * says which keys the object at `path` takes, else the pointer to the JSON Schema.
+ */
+function unknownKeyExpected(key: string, path: readonly PropertyKey[], parsedWith: ParsedWith | undefined): string {
+  if (key === '<<') return MERGE_KEY;
+  const accepted = parsedWith ? acceptedKeysAt(parsedWith.schema, path, valueAt(parsedWith.input, path)) : null;
+  if (!accepted || accepted.length === 0) return DOCUMENTED_KEYS;
+  const listed = accepted.slice(0, KEYS_LISTED).map((k) => JSON.stringify(k));
+  const more = accepted.length > KEYS_LISTED ? `, and ${accepted.length - KEYS_LISTED} more in \`trivar schema\`` : '';
+  const nearest = nearestKey(key, accepted);
+  return `one of the keys taken here (${listed.join(', ')}${more})${nearest ? `; nearest: ${JSON.stringify(nearest)}` : ''}`;
+}
+
+/**
+ * @param parsedWith the schema and the whole input the issues came from, for naming the
+ *   keys an object takes where a key is unknown (optional: without it the error points at the JSON Schema)
+ */
+export function inputIssuesFromZod(issues: readonly core.$ZodIssue[], root: unknown, prefix: readonly PropertyKey[] = [], parsedWith?: ParsedWith): InputIssue[] {
   return issues.flatMap((issue) => {
     const path = [...prefix, ...issue.path];
     // An object that fits none of a union's forms but has the shape of one of them (its
@@ -56,14 +83,14 @@ export function inputIssuesFromZod(issues: readonly core.$ZodIssue[], root: unkn
     if (issue.code === 'invalid_union' && issue.errors.length > 0) {
       const inside = issue.errors.filter((branch) => branch.length > 0 && branch.every((i) => i.path.length > 0));
       const closest = inside.sort((a, b) => a.length - b.length)[0];
-      if (closest) return inputIssuesFromZod(closest, valueAt(root, issue.path), path);
+      if (closest) return inputIssuesFromZod(closest, valueAt(root, issue.path), path, parsedWith);
       // A form that took the value's kind and refused its content with its own code (a voltage
       // notation with an impossible ratio) says why, rather than "an object or a text".
       const refused = issue.errors.find((branch) => branch.length > 0 && branch.every((i) => i.code === 'custom' && typeof i.params?.code === 'string'));
-      if (refused) return inputIssuesFromZod(refused, valueAt(root, issue.path), path);
+      if (refused) return inputIssuesFromZod(refused, valueAt(root, issue.path), path, parsedWith);
     }
     if (issue.code === 'unrecognized_keys')
-      return issue.keys.map((key) => inputIssue('unknown_key', formatPath([...path, key]), key === '<<' ? MERGE_KEY : DOCUMENTED_KEYS, key));
+      return issue.keys.map((key) => inputIssue('unknown_key', formatPath([...path, key]), unknownKeyExpected(key, path, parsedWith), key));
     // A refinement may report a value of its own in params.received (a spectrum's total, not the list).
     const received = issue.code === 'custom' && issue.params?.received !== undefined ? (issue.params.received as unknown) : valueAt(root, issue.path);
     // A refinement names its own code in params.code (`duplicate`, `not_integer`...).
@@ -87,7 +114,7 @@ export function inputIssuesFromZod(issues: readonly core.$ZodIssue[], root: unkn
  */
 export function parseOptions<T>(schema: ZodType<T>, input: unknown, what: string): T {
   const parsed = schema.safeParse(input ?? {}, ONE_SHOT_PARSE);
-  const issues = allInputIssues(parsed.success ? [] : parsed.error.issues, input);
+  const issues = allInputIssues(parsed.success ? [] : parsed.error.issues, input, schema);
   if (!parsed.success || issues.length) throw new InputError(issues, `${what} are not valid`);
   return parsed.data;
 }
@@ -113,9 +140,9 @@ export function reservedKeyIssues(input: unknown): InputIssue[] {
   return issues;
 }
 
-/** zod issues plus the `__proto__` keys zod passed over, each path once. */
-export function allInputIssues(zodIssues: readonly core.$ZodIssue[], input: unknown): InputIssue[] {
-  const issues = inputIssuesFromZod(zodIssues, input);
+/** zod issues plus the `__proto__` keys zod passed over, each path once; with `schema` (the one `input` was parsed with), unknown keys name the keys accepted. */
+export function allInputIssues(zodIssues: readonly core.$ZodIssue[], input: unknown, schema?: ZodType): InputIssue[] {
+  const issues = inputIssuesFromZod(zodIssues, input, [], schema ? { schema, input } : undefined);
   const reported = new Set(issues.map((i) => i.path));
   return [...issues, ...reservedKeyIssues(input).filter((i) => !reported.has(i.path))];
 }

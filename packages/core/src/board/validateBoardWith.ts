@@ -41,7 +41,7 @@ export function validateBoardWith<T extends BoardBaseSpec>(checks: BoardFileChec
   const naming = spelt.spellings.naming;
   const wording = issueNamingOf(naming);
   const parsed = checks.schema.safeParse(spelt.input, ONE_SHOT_PARSE);
-  const shapeIssues = withConductorSizeHints(allInputIssues(parsed.success ? [] : eitherFormIssues(parsed.error.issues, spelt.input), spelt.input), spelt.input);
+  const shapeIssues = withConductorSizeHints(allInputIssues(parsed.success ? [] : eitherFormIssues(parsed.error.issues, spelt.input), spelt.input, checks.schema), spelt.input);
   if (parsed.success && shapeIssues.length === 0) {
     const issues = [...spelt.issues, ...inFileNaming(checks.rules.flatMap((rule) => rule(parsed.data, wording)), naming)];
     return issues.length ? { ok: false, issues } : { ok: true, board: parsed.data };

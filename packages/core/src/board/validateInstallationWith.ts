@@ -57,7 +57,7 @@ export function validateInstallationWith<I extends InstallationBaseSpec, B exten
   const spelt = readTradeSpellings(input);
   const naming = spelt.spellings.naming;
   const parsed = checks.schema.safeParse(spelt.input, ONE_SHOT_PARSE);
-  if (!parsed.success) return { ok: false, issues: [...spelt.issues, ...inFileNaming(withConductorSizeHints(inputIssuesFromZod(eitherFormIssues(parsed.error.issues, spelt.input), spelt.input), spelt.input), naming)] };
+  if (!parsed.success) return { ok: false, issues: [...spelt.issues, ...inFileNaming(withConductorSizeHints(inputIssuesFromZod(eitherFormIssues(parsed.error.issues, spelt.input), spelt.input, [], { schema: checks.schema, input: spelt.input }), spelt.input), naming)] };
   const issues = [...spelt.issues, ...inFileNaming(checks.rules.flatMap((rule) => rule(parsed.data, issueNamingOf(naming))), naming)];
   return issues.length ? { ok: false, issues } : { ok: true, installation: parsed.data };
 }

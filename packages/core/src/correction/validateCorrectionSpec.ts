@@ -20,7 +20,7 @@ export type CorrectionSpecValidation = { ok: true; spec: CorrectionSpec } | { ok
  */
 export function validateCorrectionSpec(input: unknown, board: Board): CorrectionSpecValidation {
   const parsed = correctionSpecSchema.safeParse(input, ONE_SHOT_PARSE);
-  const shapeIssues = allInputIssues(parsed.success ? [] : parsed.error.issues, input);
+  const shapeIssues = allInputIssues(parsed.success ? [] : parsed.error.issues, input, correctionSpecSchema);
   // Paths and lists in the board's naming: a file in L1/L2/L3 reads `target.perPhase.L3`.
   const naming = conventionsOf(board).phaseNames;
   if (!parsed.success || shapeIssues.length) return { ok: false, issues: inFileNaming(shapeIssues, naming) };

@@ -234,7 +234,7 @@ function boardIssues(spec: RebalanceSpec, tree: RebalanceTree, movable: boolean[
 export function resolveRebalanceSpec(input: unknown, tree: RebalanceTree, context: RebalanceContext = {}): ResolvedRebalance {
   const parsed = rebalanceSpecSchema.safeParse(input ?? {}, ONE_SHOT_PARSE);
   const board = tree.boards[0]!;
-  if (!parsed.success) throw new InputError(inFileNaming(inputIssuesFromZod(parsed.error.issues, input ?? {}), conventionsOf(board).phaseNames), 'the rebalancing study is not valid');
+  if (!parsed.success) throw new InputError(inFileNaming(inputIssuesFromZod(parsed.error.issues, input ?? {}, [], { schema: rebalanceSpecSchema, input: input ?? {} }), conventionsOf(board).phaseNames), 'the rebalancing study is not valid');
   const spec = parsed.data;
   const pinned = new Map<number, ConnectionSpec>();
   const conditions: ResolvedCondition[] = [];

@@ -23,9 +23,11 @@ const numbered = (term: string): string => NUMBERED_SPELLING[term] ?? term;
 /** The naming a file's issues are worded in: the one its phase terms use (A/B/C when it names none). */
 export const issueNamingOf = (used: PhaseNaming | null): PhaseNaming => used ?? 'A/B/C';
 
-/** A schema's word-list issue ("one of "A-N", "B-N" …", a wrong value or a missing one): its phase words and the phase term received, in L1/L2/L3. */
+/** A schema's word-list issue ("one of "A-N", "B-N" …", a wrong value or a missing one) or an unknown key's list of the keys taken: its phase words and the phase term received, in L1/L2/L3. */
 function listInFileNaming(issue: InputIssue): { expected: string; received: string | undefined } {
-  if ((issue.code !== 'invalid_value' && issue.code !== 'missing') || !issue.expected.startsWith('one of "')) return { expected: issue.expected, received: issue.received };
+  const wordList = (issue.code === 'invalid_value' || issue.code === 'missing') && issue.expected.startsWith('one of "');
+  const keyList = issue.code === 'unknown_key' && issue.expected.startsWith('one of the keys taken here ("');
+  if (!wordList && !keyList) return { expected: issue.expected, received: issue.received };
   const expected = issue.expected.replace(QUOTED_TERM, (all, term: string) => (term in NUMBERED_SPELLING ? `"${numbered(term)}"` : all));
   const quoted = issue.received?.match(/^"(.*)"$/)?.[1];
   const received = quoted !== undefined && quoted in NUMBERED_SPELLING ? `"${numbered(quoted)}"` : issue.received;
