@@ -133,17 +133,23 @@ describe('correction equipment on a board that draws nothing', () => {
     ]);
     const star = runTrivar(['correct', IDLE, '--board', 'Plant room', '--arrangement', 'star-bank']);
     expect(star.code).toBe(0);
-    expect(star.stdout).toMatch(/NOTHING TO DO[^\n]*\n[^\n]*\n {2}- the board draws no active power \(every load is zero or off\), so there is nothing to correct/);
+    expect(star.stdout).toMatch(/NOTHING TO DO[^\n]*\n {2}- the board draws no active power \(every load is zero or off\), so there is nothing to correct/);
     expect(star.stdout).not.toMatch(/NOT REACHABLE/);
   });
   it('no line carries current, so there is no PF after to show (it read 1.000 beside "no current")', () => {
     const r = runTrivar(['correct', IDLE, '--board', 'Plant room', '--json']);
     const { comparison } = JSON.parse(r.stdout);
     for (const o of comparison.outcomes) expect([o.figures.lowestLinePf, o.figures.targetPfAfter]).toEqual([null, null]);
+    // Every arrangement has nothing to add: the verdict, the reason and the lines as solved, each without a PF.
     const text = runTrivar(['correct', IDLE, '--board', 'Plant room']).stdout;
-    const rows = text.split('\n').filter((l) => /^ {2}(star bank|delta bank|compensator) +nothing to do/.test(l));
+    expect(text).toMatch(/NOTHING TO DO: the board already meets the target — every arrangement studied \(star bank, delta\s+bank, balancing\s+compensator\) would add nothing\n {2}- the board draws no active power/);
+    expect(text).toMatch(/no line current, so no power factor · neutral 0\.0 A/);
+    // Nothing added: no installation table of "x→x" after it.
+    expect(text).not.toMatch(/across the installation|→/);
+    const rows = text.split('\n').filter((l) => /^ {2}[ABC] {2}/.test(l));
     expect(rows).toHaveLength(3);
-    for (const row of rows) expect(row.trim().split(/ {2,}/)[6]).toBe('-');
+    for (const row of rows) expect(row.trim().split(/ {2,}/).slice(1)).toEqual(['0.0', '0.0', '0.0', 'no current']);
+    expect(text).not.toMatch(/Arrangements compared|Capacitors hold their charge/);
   });
 });
 

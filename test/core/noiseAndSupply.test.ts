@@ -25,6 +25,53 @@ describe('noise floor', () => {
     expect(r.phases[0]!.pf).toBeCloseTo(1, 12);
     expect(NOISE_FLOOR_RELATIVE).toBe(1e-9);
   });
+  it('a resistive load reports 0 kvar, not the round-off of V·I* (about 1e-16 of its kVA), on its branches and in total', () => {
+    // Constant-current and constant-power heaters: their current is computed from the voltage, in phase to round-off.
+    for (const model of [{ zip: { z: 0, i: 1, p: 0 } }, { zip: { z: 0, i: 0, p: 1 } }, {}]) {
+      const r = solveBoard({
+        supply: withTransformer(100),
+        loads: [
+          { name: 'heater', connection: 'A-N', kW: 3.1, pf: 1, ...model },
+          { name: 'motor', connection: 'ABC-delta', kW: 7.5, pf: 0.83 },
+          { name: 'oven', connection: 'ABC-star', kW: 9, pf: 1, ...model },
+        ],
+      });
+      for (const name of ['heater', 'oven']) {
+        const load = r.loads.find((l) => l.name === name)!;
+        expect(load.kvar).toBe(0);
+        expect(load.sense).toBe('unity');
+        for (const b of load.branches) expect(b.kvar).toBe(0);
+      }
+      expect(r.loads[1]!.kvar).toBeGreaterThan(5);
+    }
+  });
+  it('a capacitor-only load reports 0 kW (P round-off within 1e-9 of its kVA) and PF 0', () => {
+    const r = solveBoard({ supply: withTransformer(100), loads: [{ name: 'caps', connection: 'ABC-delta', kW: 0, kvar: -10 }, { name: 'oven', connection: 'A-N', kW: 2, pf: 1 }] });
+    expect(r.loads[0]!.kW).toBe(0);
+    expect(r.loads[0]!.pf).toBe(0);
+    expect(r.loads[0]!.kvar).toBeLessThan(-9);
+  });
+  it('a board without a neutral has exactly zero zero-sequence current; a balanced one exactly zero negative- and zero-sequence voltage', () => {
+    const r = solveBoard({
+      supply: { system: 'three-phase-3wire', voltage: { lineToLine: 400 }, frequencyHz: 50, transformer: { kVA: 100, impedancePercent: 4, xOverR: 3 } },
+      loads: [
+        { name: 'welder', connection: 'A-B', kW: 6.3, pf: 0.7 },
+        { name: 'motor', connection: 'ABC-delta', kW: 11, pf: 0.85 },
+      ],
+    });
+    expect(r.sequences!.current.zero.magnitude).toBe(0);
+    expect(r.unbalance!.currentZeroPercent).toBe(0);
+    expect(r.sequences!.current.negative.magnitude).toBeGreaterThan(1);
+    const balanced = solveBoard({ supply: withTransformer(100), loads: [{ name: 'motor', connection: 'ABC-delta', kW: 11, pf: 0.85 }] });
+    expect(balanced.sequences!.voltage.negative.magnitude).toBe(0);
+    expect(balanced.sequences!.voltage.zero.magnitude).toBe(0);
+    expect(balanced.sequences!.current.negative.magnitude).toBe(0);
+    expect(balanced.unbalance!.voltageFactorPercent).toBe(0);
+    // Real unbalance is kept: 1e-9 of the board's current is far below what one small load makes.
+    const slight = solveBoard({ supply: withTransformer(100), loads: [{ name: 'motor', connection: 'ABC-delta', kW: 11, pf: 0.85 }, { name: 'lamp', connection: 'A-N', kW: 0.01, pf: 1 }] });
+    // The lamp's current alone is zero-sequence-bearing (a delta motor has none): I0 = I_lamp / 3.
+    expect(slight.sequences!.current.zero.magnitude / (slight.loads[1]!.branches[0]!.current.magnitude / 3)).toBeCloseTo(1, 9);
+  });
   it('an all-zero board reads as zero everywhere, without PFs and without warnings', () => {
     const r = solveBoard({ supply, loads: [{ name: 'spare', connection: 'A-N', kW: 0, pf: 1 }, { name: 'spare 2', connection: 'ABC-delta', kW: 0, kvar: 0 }] });
     for (const p of r.phases) {

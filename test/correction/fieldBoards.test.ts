@@ -48,6 +48,12 @@ describe('banks as bought and installed', () => {
     const star = correctBoard(plant600, { arrangement: 'star-bank' });
     expect(star.status).toBe('no-suitable-units');
     expect(star.reasons[0]).toMatch(/no unit in the built-in typical North-American catalogue \(60 Hz\) fits A-N, B-N, C-N: a unit there must be rated at least 346\.4 V/);
+    // The way out named with its figure: the nearest rating's share at the applied voltage, (V/480)^2.
+    const applied = star.selection!.unbuildable!.appliedV;
+    const share = 100 * (applied / 480) ** 2;
+    expect(star.reasons[0]).toContain(`the nearest, 480 V, delivers ${share.toFixed(1)} % there (a deliveryFloorPercent of ${Math.floor(share)} in the correction accepts it)`);
+    const accepted = correctBoard(plant600, { arrangement: 'star-bank', deliveryFloorPercent: Math.floor(share) });
+    expect(accepted.status).not.toBe('no-suitable-units');
   });
 
   it('120/240 V house: a line-to-line capacitor of 240 V single-phase units, in single steps', () => {

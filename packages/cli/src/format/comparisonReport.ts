@@ -3,7 +3,7 @@ import { boundFigure } from './correctionReport.js';
 import { arrangementNames, type Arrangement, type ArrangementOutcome, type CorrectionComparison } from '@trivar/core';
 import { fixed, renderTable, section } from './textTable.js';
 import { headerLines } from './solveReport.js';
-import { renderCorrectionReport } from './correctionReport.js';
+import { renderCorrectionReport, renderNothingToAdd } from './correctionReport.js';
 import { wrapText } from './wrapText.js';
 
 const TWO_LINE_TABLE_NAMES = { 'star-bank': 'L-N bank', 'delta-bank': 'L-L bank' } as const;
@@ -56,6 +56,10 @@ export function renderComparisonReport(c: CorrectionComparison): string {
   const first = c.outcomes.find((o) => o.report)?.report;
   const system = comparedSystem(c);
   const names = tableNames(system);
+  // Every arrangement has nothing to add: the verdict and the board's figures, not a table of zeros.
+  const studied = c.outcomes.filter((o) => o.report);
+  if (first && studied.every((o) => o.report!.status === 'already-meets-target'))
+    return renderNothingToAdd(first, studied.length === 1 ? `a ${arrangementNames(system)[first.arrangement]}` : `every arrangement studied (${studied.map((o) => arrangementNames(system)[o.arrangement]).join(', ')})`);
   const parts: string[] = [];
   if (first) {
     parts.push(headerLines(first.verification.before).slice(0, 2).join('\n'));

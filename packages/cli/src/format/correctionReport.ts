@@ -1,5 +1,5 @@
 /** CorrectionReport → the human-readable report of `trivar correct` (fits 100 columns). */
-import { arrangementDescriptions, CORRECTION_DEFAULTS, labellerOf, meteringPointWords, reactorChanges, smallBranchWords, type BankSelection, type BankStep, type BeforeAfter, type BranchSizing, type CompensatorSizing, type ControllerSettings, type CorrectionReport, type CorrectionVerification, type PhaseId, type PhaseLabeller } from '@trivar/core';
+import { arrangementDescriptions, arrangementNames, CORRECTION_DEFAULTS, labellerOf, meteringPointWords, reactorChanges, smallBranchWords, type BankSelection, type BankStep, type BeforeAfter, type BranchSizing, type CompensatorSizing, type ControllerSettings, type CorrectionReport, type CorrectionVerification, type PhaseId, type PhaseLabeller } from '@trivar/core';
 import { fixed, renderTable, section } from './textTable.js';
 import { headerLines } from './solveReport.js';
 import { wrapText } from './wrapText.js';
@@ -287,14 +287,67 @@ function compensatorBlock(c: CompensatorSizing, ideal: CorrectionVerification | 
 const FLOATING_STAR_NOTE =
   'a floating star bank is sized as its exact delta equivalent (Y–Δ transform of the capacitances) and mapped back; its star point settles where the three capacitor currents sum to zero';
 
-export function renderCorrectionReport(r: CorrectionReport): string {
+/** Lines as solved without equipment: the before side of `lineTable`, for a board with nothing to add. */
+function lineTableNow(v: Pick<CorrectionVerification, 'lines'>, label: PhaseLabeller): string {
+  return renderTable(
+    [
+      { header: 'line', align: 'left' },
+      { header: 'current A' },
+      { header: 'active part A' },
+      { header: 'reactive part A' },
+      { header: 'PF', align: 'left' },
+    ],
+    v.lines.map((l) => [label(l.phase), fixed(l.currentA.before, 1), fixed(l.activeCurrentA.before, 1), fixed(l.reactiveCurrentA.before, 1), `${pfFigure(l.pf.before)} ${senseWord(l.sense.before)}`.trim()]),
+  );
+}
+
+/**
+ * The report of a board that already meets the target: the verdict and the figures it rests on.
+ * No sizing, bank or before → after tables (every one would read zero or "x → x"), and of the
+ * cautions only those that hold without equipment (the capacitor ones are for a bank being installed).
+ * `studied` names what was studied: one arrangement, or every one compared.
+ */
+export function renderNothingToAdd(r: CorrectionReport, studied: string): string {
   const v = r.verification;
   const label = labelsOf(v);
-  const target = `${r.target.statement}; PF ≥ ${boundFigure(r.target.pf)}${r.target.leading === 'never' ? ', never leading' : ', leading allowed'}${r.target.maxLaggingPf === null ? '' : `, at most ${fixed(r.target.maxLaggingPf, 3)} lagging`}`;
+  const pf = v.powerFactor;
+  // A board whose lines carry nothing has no power factor to show (its PF figures are placeholders).
+  const idle = v.lines.every((l) => l.pf.before === null);
+  const board = [
+    idle ? 'no line current, so no power factor' : null,
+    !idle && pf.effective ? `PF effective (IEEE 1459) ${fixed(pf.effective.before, 3)}` : null,
+    idle ? null : `PF vector ${fixed(pf.vector.before, 3)}`,
+    idle ? null : `PF arithmetic ${fixed(pf.arithmetic.before, 3)}`,
+    !idle && pf.positiveSequence ? `PF positive sequence ${fixed(pf.positiveSequence.before, 3)}` : null,
+    v.neutralCurrentA ? `neutral ${fixed(v.neutralCurrentA.before, 1)} A` : null,
+  ].filter((x) => x !== null);
+  const parts = [
+    headerLines(v.before).slice(0, 2).join('\n'),
+    wrapText(`target: ${targetWords(r)}`, '', '  '),
+    '',
+    wrapText(`${STATUS_WORDS['already-meets-target']} — ${studied} would add nothing`, '', '  '),
+    ...r.reasons.map((x) => wrapText(x, '  - ', '    ')),
+    ...balanceLine(r).map((x) => wrapText(x, '  ', '    ')),
+  ];
+  if (v.metering) parts.push(meteringSection(v.metering, lineTableNow(v.metering, label)));
+  parts.push(section('Lines as solved, without equipment') + lineTableNow(v, label));
+  parts.push(section('Board') + wrapText(board.join(' · '), '  ', '    '));
+  const general = r.cautions.filter((c) => !/capacit/i.test(c));
+  if (general.length) parts.push(section('Cautions') + general.map((c) => wrapText(c, '  * ', '    ')).join('\n'));
+  return `${parts.join('\n')}\n`;
+}
+
+const targetWords = (r: CorrectionReport): string =>
+  `${r.target.statement}; PF ≥ ${boundFigure(r.target.pf)}${r.target.leading === 'never' ? ', never leading' : ', leading allowed'}${r.target.maxLaggingPf === null ? '' : `, at most ${fixed(r.target.maxLaggingPf, 3)} lagging`}${r.target.measuredAt === undefined ? '' : `; measured at ${meteringPointWords(r.target.measuredAt)}`}`;
+
+export function renderCorrectionReport(r: CorrectionReport): string {
+  if (r.status === 'already-meets-target') return renderNothingToAdd(r, `a ${arrangementNames(r.verification.before.board.system)[r.arrangement]}`);
+  const v = r.verification;
+  const label = labelsOf(v);
   const parts = [
     headerLines(v.before).slice(0, 2).join('\n'),
     wrapText(`correction: ${arrangementDescriptions(v.before.board.system)[r.arrangement]}`, '', '  '),
-    wrapText(`target: ${target}${r.target.measuredAt === undefined ? '' : `; measured at ${meteringPointWords(r.target.measuredAt)}`}`, '', '  '),
+    wrapText(`target: ${targetWords(r)}`, '', '  '),
     '',
     wrapText(`${STATUS_WORDS[r.status] ?? r.status} — ${r.summary}`, '', '  '),
     ...r.reasons.map((x) => wrapText(x, '  - ', '    ')),

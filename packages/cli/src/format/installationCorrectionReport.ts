@@ -2,11 +2,11 @@
  * `trivar correct` on an installation: where the equipment goes, the study on that board, then what the
  * equipment does to every board, feeder and the supply (fits 100 columns).
  */
-import { meteringPointWords, type BeforeAfter, type InstallationComparison, type InstallationCorrection, type InstallationEffect } from '@trivar/core';
+import { arrangementNames, meteringPointWords, type BeforeAfter, type InstallationComparison, type InstallationCorrection, type InstallationEffect } from '@trivar/core';
 import { fixed, renderTableWithin, section } from './textTable.js';
 import { treeName } from './boardTree.js';
 import { renderCorrectionReport } from './correctionReport.js';
-import { renderComparisonReport } from './comparisonReport.js';
+import { comparedSystem, renderComparisonReport } from './comparisonReport.js';
 import { REPORT_WIDTH, wrapText } from './wrapText.js';
 
 const note = (text: string) => `${wrapText(text, '  (', '   ', REPORT_WIDTH - 1)})`;
@@ -103,13 +103,18 @@ export function renderInstallationEffect(e: InstallationEffect): string {
   );
 }
 
+// With nothing to add, every board's before → after would read "x→x": the board report says it once.
 export function renderInstallationCorrection(c: InstallationCorrection): string {
-  return `${placeLines(c)}\n${renderCorrectionReport(c.report)}${renderInstallationEffect(c.effect)}`;
+  const effect = c.report.status === 'already-meets-target' ? '' : renderInstallationEffect(c.effect);
+  return `${placeLines(c)}\n${renderCorrectionReport(c.report)}${effect}`;
 }
 
 export function renderInstallationComparison(c: InstallationComparison): string {
-  const effect = c.effect
-    ? `\nThe recommended ${c.comparison.recommended?.replace('-', ' ') ?? ''} across the installation\n${renderInstallationEffect(c.effect)}`
-    : '';
+  const recommended = c.comparison.outcomes.find((o) => o.arrangement === c.comparison.recommended)?.report;
+  const system = comparedSystem(c.comparison);
+  const effect =
+    c.effect && recommended && recommended.status !== 'already-meets-target'
+      ? `\nThe recommended ${arrangementNames(system)[recommended.arrangement]} across the installation\n${renderInstallationEffect(c.effect)}`
+      : '';
   return `${placeLines(c)}\n${renderComparisonReport(c.comparison)}${effect}`;
 }

@@ -15,7 +15,7 @@ import { checkVoltages } from './voltageCheck.js';
 import { boardWarnings, GENERAL_CAUTION, NEUTRAL_CAUTION } from './boardWarnings.js';
 import { readLoads } from './readLoads.js';
 import { powerReading } from './powerReading.js';
-import { currentNoiseFloor, withNoiseFloor } from './noiseFloor.js';
+import { currentNoiseFloor, SEQUENCE_VOLTAGE_RESOLUTION, sequencesAbove, withNoiseFloor } from './noiseFloor.js';
 import { judgeOperatingPoint, readIncomer, readTransformer } from './readSupplyState.js';
 import type { BoardResult, LineToLineReading, LossReading, NeutralReading, PhaseReading, PowerReading, UnbalanceReading } from './boardResult.js';
 
@@ -101,10 +101,16 @@ function readLosses(solution: NetworkSolution): LossReading {
   return { sourceKW: source.re / 1000, lineFeederKW: feeder.re / 1000, neutralKW: neutral.re / 1000, totalKW: total.re / 1000, totalKvar: total.im / 1000 };
 }
 
-function readSequences(solution: NetworkSolution, phaseVoltages: readonly ComplexValue[], phases: readonly PhaseReading[], lineToLine: readonly LineToLineReading[]) {
+/** Phase voltages' sequence components, round-off of the zero and negative sequences (a balanced board's) read as zero. */
+function voltageSequences(phaseVoltages: readonly ComplexValue[], sequence: 'ABC' | 'ACB') {
+  const vs = sequenceComponents(phaseVoltages as unknown as [ComplexValue, ComplexValue, ComplexValue], sequence);
+  return sequencesAbove(vs, SEQUENCE_VOLTAGE_RESOLUTION * abs(vs.positive));
+}
+
+function readSequences(solution: NetworkSolution, phaseVoltages: readonly ComplexValue[], phases: readonly PhaseReading[], lineToLine: readonly LineToLineReading[], currentFloor: number) {
   const triple = (xs: readonly ComplexValue[]) => xs as unknown as [ComplexValue, ComplexValue, ComplexValue];
-  const vs = sequenceComponents(triple(phaseVoltages), solution.board.sequence);
-  const is = sequenceComponents(triple(solution.lineCurrents), solution.board.sequence);
+  const vs = voltageSequences(phaseVoltages, solution.board.sequence);
+  const is = sequencesAbove(sequenceComponents(triple(solution.lineCurrents), solution.board.sequence), currentFloor);
   const asPhasors = (x: typeof vs) => ({ zero: toPhasor(x.zero), positive: toPhasor(x.positive), negative: toPhasor(x.negative) });
   const lineRate = deviationFromAveragePercent(lineToLine.map((l) => l.voltage.magnitude));
   const unbalance: UnbalanceReading = {
@@ -169,8 +175,8 @@ export function sequenceCurrentsAbove(solved: SolvedLines, floor: number): Seque
   if (!isThreePhase(solved.board.system)) return null;
   const lines = solved.lineCurrents.map((i) => (abs(i) < floor ? ZERO : i));
   const triple = (xs: readonly ComplexValue[]) => xs as unknown as [ComplexValue, ComplexValue, ComplexValue];
-  const vs = sequenceComponents(triple(boardVoltages(solved).phase), solved.board.sequence);
-  const is = sequenceComponents(triple(lines), solved.board.sequence);
+  const vs = voltageSequences(boardVoltages(solved).phase, solved.board.sequence);
+  const is = sequencesAbove(sequenceComponents(triple(lines), solved.board.sequence), floor);
   const { p1, q1 } = positiveSequencePower(vs.positive, is.positive);
   return { current: is, positiveSequence: { kW: p1 / 1000, kvar: q1 / 1000 } };
 }
@@ -215,7 +221,8 @@ function readPowerFactors(
 }
 
 export function analyseSolution(solved: NetworkSolution): BoardResult {
-  const solution = withNoiseFloor(solved);
+  const floor = currentNoiseFloor(solved);
+  const solution = withNoiseFloor(solved, floor);
   const { board } = solution;
   const threePhase = isThreePhase(board.system);
   const voltages = boardVoltages(solution);
@@ -228,7 +235,7 @@ export function analyseSolution(solved: NetworkSolution): BoardResult {
   // above round-off flows in it (its raw sum was about 1e-14 kW on a board with nothing on).
   const idle = solution.lineCurrents.every((i) => i.re === 0 && i.im === 0) && (solution.neutralCurrent === null || (solution.neutralCurrent.re === 0 && solution.neutralCurrent.im === 0));
   const sourcePower = idle ? ZERO : (solution.suppliedPower ?? sum(board.emf.map((e, k) => mul(e, conj(solution.lineCurrents[k]!)))));
-  const seq = threePhase ? readSequences(solution, voltages.phase, phases, lineToLine) : null;
+  const seq = threePhase ? readSequences(solution, voltages.phase, phases, lineToLine, floor) : null;
   const powerFactor = readPowerFactors(solution, phases, lineToLine, seq ? { V1: seq.V1, I1: seq.I1 } : null);
   const unbalance = seq?.unbalance ?? null;
   const belowThreshold = loadsBelowThreshold(solution);

@@ -44,9 +44,23 @@ export function noiseFloorFor(board: NetworkSolution['board']): (largestCurrent:
   return (largestCurrent) => Math.max(NOISE_FLOOR_RELATIVE * largestCurrent, conductorFloor);
 }
 
-/** The solution with every current under the noise floor set to zero. */
-export function withNoiseFloor(solution: NetworkSolution): NetworkSolution {
-  const floor = currentNoiseFloor(solution);
+/**
+ * A sequence component is a sum of three phasors, so on a board where it is zero by
+ * KCL (zero-sequence current without a neutral) or by symmetry it comes out as the
+ * round-off of that sum: below the current noise floor for currents, below this
+ * fraction of the positive-sequence voltage for voltages (double round-off is ~1e-16;
+ * no meter resolves 1e-12 — common practice, no source).
+ */
+export const SEQUENCE_VOLTAGE_RESOLUTION = 1e-12;
+
+/** A sequence set with every component under `floor` set to exactly zero. */
+export function sequencesAbove<T extends { zero: ComplexValue; positive: ComplexValue; negative: ComplexValue }>(set: T, floor: number): T {
+  const clean = (x: ComplexValue): ComplexValue => (abs(x) < floor ? ZERO : x);
+  return { ...set, zero: clean(set.zero), positive: clean(set.positive), negative: clean(set.negative) };
+}
+
+/** The solution with every current under the noise floor (`floor`, found from the solution when not given) set to zero. */
+export function withNoiseFloor(solution: NetworkSolution, floor: number = currentNoiseFloor(solution)): NetworkSolution {
   const clean = (i: ComplexValue): ComplexValue => (abs(i) < floor ? ZERO : i);
   return {
     ...solution,

@@ -2,7 +2,7 @@
 import { abs, add, conj, mul, scale, sub, sum, toPhasor, ZERO, type ComplexValue } from '../complex.js';
 import type { LoadBranch, PhaseId } from '../board/boardModel.js';
 import { terminalVoltage, type BranchState, type NetworkSolution } from '../network/solveNetwork.js';
-import { powerReading } from './powerReading.js';
+import { powerParts, powerReading } from './powerReading.js';
 import type { BranchReading, LoadReading } from './boardResult.js';
 
 /** Current a load draws from one phase terminal: Σ of its branch currents leaving that terminal. */
@@ -30,8 +30,7 @@ export function readLoads(solution: NetworkSolution, busVoltages: readonly Compl
         voltage: toPhasor(states[bi]!.voltage),
         voltagePercent: (100 * abs(states[bi]!.voltage)) / b.vNominal,
         current: toPhasor(states[bi]!.current),
-        kW: powers[bi]!.re / 1000,
-        kvar: powers[bi]!.im / 1000,
+        ...powerParts(powers[bi]!),
       }),
     );
     const star = load.branches.find((b) => b.to.startsWith('star:'))?.to;

@@ -18,7 +18,7 @@ import type { BoardResult, PowerFactorSense } from '../analysis/boardResult.js';
 import type { TargetReadings } from '../analysis/analyseSolution.js';
 import type { Arrangement, TargetDefinition, TargetSpec } from './correctionSpec.js';
 import { CORRECTION_DEFAULTS } from './correctionDefaults.js';
-import { meteredStatement, SINGLE_LINE_STATEMENT, TARGET_STATEMENTS, targetShortfall } from './correctionWording.js';
+import { meteredStatement, PER_LINE_STATEMENTS, SINGLE_LINE_STATEMENT, TARGET_STATEMENTS, targetShortfall } from './correctionWording.js';
 import { labellerOf } from '../board/conventions/phaseNames.js';
 
 export type BoardTargetDefinition = Exclude<TargetDefinition, 'per-line'>;
@@ -63,7 +63,14 @@ export function resolveTarget(spec: TargetSpec | undefined, board: Board, arrang
   const leading = spec?.leading ?? CORRECTION_DEFAULTS.leading;
   const lines = definition === 'per-line' ? board.phases.map((phase) => ({ phase, minPf: spec?.perPhase?.[phase] ?? pf })) : [];
   // "Every line" and a 3-wire board's virtual neutral say nothing on a board with one line and the neutral.
-  const stated = definition === 'per-line' && board.system === 'single-phase' ? SINGLE_LINE_STATEMENT : TARGET_STATEMENTS[definition];
+  const stated =
+    definition !== 'per-line'
+      ? TARGET_STATEMENTS[definition]
+      : board.system === 'single-phase'
+        ? SINGLE_LINE_STATEMENT
+        : board.hasNeutral
+          ? PER_LINE_STATEMENTS.neutral
+          : PER_LINE_STATEMENTS.threeWire;
   return {
     definition,
     statement: spec?.measuredAt === undefined ? stated : meteredStatement(stated),

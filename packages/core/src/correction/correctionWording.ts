@@ -38,6 +38,12 @@ export const TARGET_STATEMENTS: Record<TargetDefinition, string> = {
   'positive-sequence': 'fundamental positive-sequence power factor of the board, P1+/S1+ (IEEE Std 1459)',
 };
 
+/** The per-line target where the board has a neutral, and on a three-phase 3-wire board: the voltage each line's power is taken on. */
+export const PER_LINE_STATEMENTS = {
+  neutral: 'displacement power factor of every line at the board, P/|S| with S = V·I* per line (voltage to the neutral bar)',
+  threeWire: 'displacement power factor of every line at the board, P/|S| with S = V·I* per line (voltage to the virtual neutral: the board has no neutral)',
+} as const;
+
 /** The per-line target on a single-phase (2-wire) board: its one line, to the neutral. */
 export const SINGLE_LINE_STATEMENT = 'displacement power factor at the board, P/|S| with S = V·I* (the line to the neutral)';
 
@@ -199,8 +205,19 @@ export const selectionWording = {
   typicalNote:
     'typical ratings, not any vendor\'s range: check the real ratings, tolerance and discharge time of the units you buy',
   userNote: 'units from the catalogue given',
-  noUnit: (branches: readonly PhaseLabel[], neededV: number, appliedV: number, catalogue: string, floorPercent: number, ratings: readonly number[]) =>
-    `no unit in the ${catalogue} fits ${branches.join(', ')}: a unit there must be rated at least ${f1(neededV)} V and still deliver ${floorPercent.toFixed(0)} % of its nameplate at ${f1(appliedV)} V, i.e. be rated at most ${f1(appliedV / Math.sqrt(floorPercent / 100))} V; the catalogue has ${ratings.map((v) => `${v}`).join(', ')} V`,
+  noUnit: (branches: readonly PhaseLabel[], neededV: number, appliedV: number, catalogue: string, floorPercent: number, ratings: readonly number[]) => {
+    const highestV = appliedV / Math.sqrt(floorPercent / 100);
+    // The way out the user controls: the lowest rating the voltage rule allows, and the floor that would take it.
+    const nearest = ratings.find((v) => v >= neededV);
+    const delivers = nearest === undefined ? 0 : 100 * (appliedV / nearest) ** 2;
+    const remedy =
+      neededV > highestV
+        ? `; no rating meets both at this voltage: only a lower deliveryFloorPercent in the correction does (${Math.floor(100 * (appliedV / neededV) ** 2)} for a ${f1(neededV)} V unit)`
+        : nearest !== undefined && Math.floor(delivers) >= 1
+        ? `; the nearest, ${nearest} V, delivers ${delivers.toFixed(1)} % there (a deliveryFloorPercent of ${Math.floor(delivers)} in the correction accepts it), or give a catalogue with units rated ${f1(neededV)}–${f1(highestV)} V`
+        : `; give a catalogue with units rated ${f1(neededV)}–${f1(highestV)} V`;
+    return `no unit in the ${catalogue} fits ${branches.join(', ')}: a unit there must be rated at least ${f1(neededV)} V and still deliver ${floorPercent.toFixed(0)} % of its nameplate at ${f1(appliedV)} V, i.e. be rated at most ${f1(highestV)} V; the catalogue has ${ratings.map((v) => `${v}`).join(', ')} V${remedy}`;
+  },
   costStatement: (unitCostKvar: number) =>
     `least cost = nameplate kvar + ${unitCostKvar} kvar-equivalent per unit bought, among the builds that best fit the tolerance window, the controller outputs and the minimum step`,
 };

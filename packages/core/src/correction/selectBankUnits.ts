@@ -121,7 +121,7 @@ export function selectBankUnits(sized: SizedEquipment, options?: SelectBankUnits
   const practice = opts.practice ?? defaultPractice(sized.frequencyHz);
   const typical = opts.catalogue === undefined;
   const label = labellerOf(opts.phaseNames ?? 'A/B/C');
-  const catalogueTitle = typical ? TYPICAL_CATALOGUES[practice].title : 'the catalogue given (catalogue)';
+  const catalogueTitle = typical ? TYPICAL_CATALOGUES[practice].title : 'catalogue given in the correction';
   const all: Usable[] = typical ? TYPICAL_CATALOGUES[practice].units.map((unit) => ({ unit, index: null })) : opts.catalogue!.map((u, index) => ({ unit: catalogueUnitOf(u, index), index }));
   const tol = opts.capacitanceTolerance ?? {};
   const minus = (tol.minusPercent ?? CORRECTION_DEFAULTS.capacitanceTolerance.minusPercent) / 100;
