@@ -100,6 +100,33 @@ describe('open-neutral study: constant-impedance loads', () => {
   });
 });
 
+describe('every line-to-neutral load on one line', () => {
+  // With the neutral open such loads have no return path: zero current, 0 V across them, in any
+  // load model (derived: one series path, open). A line-to-line load beside them is untouched.
+  it.each(['constant-power', 'constant-current', 'constant-impedance'] as const)('%s: dead at 0 V, said plainly, and no modelling-choice finding', (model) => {
+    const study = solveBoard(
+      {
+        supply: { system: 'three-phase-4wire', voltage: { lineToLine: 400 }, frequencyHz: 50, transformer: { kVA: 100, impedancePercent: 4, xOverR: 3 } },
+        conventions: { phaseNames: 'L1/L2/L3' },
+        loads: [
+          { name: 'heater', connection: 'L2-N', kW: 3, pf: 1, model },
+          { name: 'kettle', connection: 'L2-N', kW: 2, pf: 1, model },
+          { name: 'saw', connection: 'L1-L3', kW: 2.2, pf: 0.8 },
+        ],
+      },
+      { openNeutral: true },
+    ).openNeutral!;
+    expect(study.loads.map((l) => [l.name, l.phase, l.voltage])).toEqual([
+      ['heater', 'B', 0],
+      ['kettle', 'B', 0],
+    ]);
+    expect(study.lowVoltageRuleDecides).toBe(false);
+    expect(study.findings).toEqual([
+      'Every line-to-neutral load is on line L2: with the neutral broken they have no return path, so they go dead (0 V) whatever their load model, and none is left on another line to see a raised voltage.',
+    ]);
+  });
+});
+
 describe('followNeutralBreak', () => {
   it('ends, with the neutral open, on the state the study reports for the house example', () => {
     const spec = readBoardText(readFileSync(new URL('../../examples/maple-lane-house.yaml', import.meta.url), 'utf8'));

@@ -46,9 +46,15 @@ export function openNeutralFindings(input: {
   readonly lowVoltageRuleDecides: boolean;
   readonly dependsOnLoadModel: boolean;
   readonly thresholdPercent: number;
+  /** The one line every line-to-neutral load is on (as the board names it), or null. */
+  readonly deadLine?: string | null;
 }): string[] {
   const out: string[] = [];
   const { reached, withoutRule } = input;
+  if (input.deadLine)
+    out.push(
+      `Every line-to-neutral load is on line ${input.deadLine}: with the neutral broken they have no return path, so they go dead (0 V) whatever their load model, and none is left on another line to see a raised voltage.`,
+    );
   if (!input.reachedFromIntact)
     out.push(
       `Followed from the intact board as a resistance in the neutral rises, the operating state ceases to exist${input.collapseAtOhms === null ? ' just before the neutral opens' : ` at about ${ohms(input.collapseAtOhms)} ohm`} (voltage collapse): the board jumps to another state. Shown is the worst state found (${extremes(reached)}).`,

@@ -19,6 +19,7 @@ import type { OpenNeutralLoadReading, OpenNeutralState, OpenNeutralStudy, OpenNe
 import { WARNING_THRESHOLDS } from './boardWarnings.js';
 import { regionWords } from '../board/conventions/regionWords.js';
 import { conventionsOf } from '../board/conventions/boardConventions.js';
+import { labellerOf } from '../board/conventions/phaseNames.js';
 
 /** The cautions in the words of the board's region (see regionWords). */
 const openNeutralCautionsOf = (board: Board) => regionWords(conventionsOf(board).region, board.system).openNeutralCautions;
@@ -193,7 +194,11 @@ export function studyOpenNeutral(board: Board, options?: SolveOptions): OpenNeut
     .map((s) => readState(board, s, threshold));
   const impedanceModel = impedance ? readState(board, impedance, threshold) : null;
 
-  const powerDependent = board.loads.some((l) => l.branches.some((b) => b.zip.z < 1 && abs(b.sNominal) > 0));
+  // Every line-to-neutral load on one line: with the neutral open they have no return path, so no
+  // current flows through them whatever their model (a constant-power load's "collapse" is that).
+  const phasesFed = new Set(reached.loads.map((l) => l.phase));
+  const deadLine = phasesFed.size === 1 ? reached.loads[0]!.phase : null;
+  const powerDependent = deadLine === null && board.loads.some((l) => l.branches.some((b) => b.zip.z < 1 && abs(b.sNominal) > 0));
   let withoutLowVoltageRule: OpenNeutralWithoutRule | null = null;
   let ruleDecides = false;
   if (powerDependent && reached.loads.some((l) => l.belowLowVoltageRule)) {
@@ -216,6 +221,7 @@ export function studyOpenNeutral(board: Board, options?: SolveOptions): OpenNeut
     lowVoltageRuleDecides: ruleDecides,
     dependsOnLoadModel,
     thresholdPercent: 100 * threshold,
+    deadLine: deadLine === null ? null : labellerOf(conventionsOf(board).phaseNames)(deadLine),
   });
   return {
     applicable: true,
