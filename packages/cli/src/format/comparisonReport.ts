@@ -58,6 +58,8 @@ export function renderComparisonReport(c: CorrectionComparison): string {
   const names = tableNames(system);
   // Every arrangement has nothing to add: the verdict and the board's figures, not a table of zeros.
   const studied = c.outcomes.filter((o) => o.report);
+  // One arrangement fits (a single-phase board's capacitors across the supply): nothing to set side by side.
+  if (first && studied.length === 1 && !c.outcomes.some((o) => o.notApplicable) && first.status !== 'already-meets-target') return renderCorrectionReport(first);
   if (first && studied.every((o) => o.report!.status === 'already-meets-target'))
     return renderNothingToAdd(first, studied.length === 1 ? `a ${arrangementNames(system)[first.arrangement]}` : `every arrangement studied (${studied.map((o) => arrangementNames(system)[o.arrangement]).join(', ')})`);
   const parts: string[] = [];
