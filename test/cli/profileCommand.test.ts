@@ -53,7 +53,9 @@ describe('trivar profile', () => {
     expect(bank.settings).toMatchObject({ targetPf: 0.97, upperPf: 0.995, responseShare: c.settingFraction, delaySeconds: c.switchingDelayS, reconnectSeconds: c.reconnectionDelayS, coverShare: null });
     expect(bank.after.energy.billingPf).toBeGreaterThan(JSON.parse(r.stdout).before.energy.billingPf);
     const text = runTrivar(['profile', BOARD, '--data', data, '--correction-bank']).stdout;
-    expect(text).toMatch(/the bank the correction study designs for this board/);
+    // The report names the design: the arrangement the file names, or the one trivar correct recommends.
+    expect(bank.design).toEqual({ arrangement: designed.arrangement, words: `${designed.arrangement.replace('-bank', '')} bank`, recommended: false });
+    expect(text).toContain(`the ${bank.design.words} of the board file's correction section, as trivar correct designs it`);
     expect(text).toMatch(/PF band 0\.97 to 0\.995 lagging/);
   });
 

@@ -113,9 +113,23 @@ describe('trivar profile on an installation', () => {
     const bank = JSON.parse(r.stdout).bank;
     expect(bank.board).toBe('Pottery');
     expect(bank.source).toBe('correction-study');
+    expect(bank.design).toEqual({ arrangement: 'star-bank', words: 'star bank', recommended: false });
     expect(bank.steps.map((s: { step: number }) => s.step)).toEqual(selection.steps.map((s: { output: number }) => s.output));
     expect(runTrivar(['profile', file, '--data', `${ROOT}${DATA}`, '--correction-bank', '--pf', '0.9']).stderr).toContain('--pf sets the target');
     expect(runTrivar(['profile', FILE, '--data', DATA, '--correction-bank']).stderr).toContain('--correction-bank: the installation file has no correction section, so there is no correction study to take a bank from');
+  });
+
+  it('--correction-bank with no arrangement named: the one trivar correct recommends, and the report says so', () => {
+    const file = join(dir, 'recommended.yaml');
+    writeFileSync(file, `${readFileSync(`${ROOT}${FILE}`, 'utf8')}correction:\n  board: Mill intake\n  target: { pf: 0.95 }\n`);
+    const compared = JSON.parse(runTrivar(['correct', file, '--json']).stdout);
+    const recommended = compared.comparison.recommended;
+    const r = runTrivar(['profile', file, '--data', `${ROOT}${DATA}`, '--correction-bank', '--json']);
+    expect(r.code).toBe(0);
+    const words = recommended === 'balancing-compensator' ? 'balancing compensator' : recommended.replace('-', ' ');
+    expect(JSON.parse(r.stdout).bank.design).toEqual({ arrangement: recommended, words, recommended: true });
+    const text = runTrivar(['profile', file, '--data', `${ROOT}${DATA}`, '--correction-bank']).stdout;
+    expect(text).toContain(`the ${words} trivar correct recommends for this board (the board file's correction section names no arrangement), as it designs it`);
   });
 
   it('the controller reads where the target says: the correction target\'s measuredAt, or profile.bank.measuredAt', () => {

@@ -260,7 +260,7 @@ export type { ScenarioReading, ScenarioResult, BoardScenarios } from './profile/
 export { studyScenarios } from './profile/studyScenarios.js';
 export type { InstallationScenarioBoard, InstallationScenarioResult } from './profile/studyInstallationScenarios.js';
 export { studyInstallationScenarios } from './profile/studyInstallationScenarios.js';
-export type { SwitchingFromBank } from './profile/switchingFromBank.js';
+export type { BankDesign, SwitchingFromBank } from './profile/switchingFromBank.js';
 export { switchingFromBank } from './profile/switchingFromBank.js';
 // Regional conventions: phase names, voltage notation, voltage limits, region wording.
 export type { PhaseNaming, PhaseLabel, PhaseLabeller } from './board/conventions/phaseNames.js';

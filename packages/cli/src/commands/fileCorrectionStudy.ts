@@ -98,5 +98,5 @@ export function switchedBankOf(c: FileCorrection, option: string): SwitchingFrom
       `${option}: every step of ${what(c)} is across a pair of lines (${across}); the simulator switches three-phase steps and steps from a line to the neutral only, so none of it can be simulated; ${accepted}`,
     );
   }
-  return bank;
+  return { ...bank, design: { arrangement: r.arrangement, words: arrangementNames(system)[r.arrangement], recommended: c.recommended !== null } };
 }

@@ -108,7 +108,9 @@ export function bankLines(r: { readonly bank: ProfileResult['bank']; readonly be
           .map(([c, v]) => `${fixed(v, 1)} kvar ${c === 'ABC' ? 'three-phase' : `on phase ${label(c)}`}`)
           .join(', ')} needed`
       : b.source === 'correction-study'
-        ? 'the bank the correction study designs for this board (trivar correct, the board file\'s correction section)'
+        ? b.design?.recommended
+          ? `the ${b.design.words} trivar correct recommends for this board (the board file's correction section names no arrangement), as it designs it`
+          : `the ${b.design?.words ?? 'bank'} of the board file's correction section, as trivar correct designs it`
         : 'steps as given in profile.bank.steps';
   // Three decimals where a band edge needs them (0.995 must not read as 0.99).
   const pf = (x: number) => fixed(x, Math.round(x * 100) === x * 100 ? 2 : 3);

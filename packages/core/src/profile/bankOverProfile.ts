@@ -84,6 +84,7 @@ export function bankOverProfile(input: BankOverProfileInput, options: Pick<Profi
     const belowTarget = upperPf !== undefined && steps.length && steps.every((x) => x.channel === 'ABC') ? hoursBelowTarget(run.meterFigures ?? run.figures, settings.targetPf, upperPf, Math.min(...steps.map((x) => x.kvar)), input.intervalMs) : null;
     const bank: ProfileBankResult = {
       source,
+      design: designed?.design ?? null,
       sizedFromProfile: source === 'profile',
       needKvar,
       steps: stepRuns,

@@ -9,7 +9,7 @@ import { conventionsOf } from '../board/conventions/boardConventions.js';
 import type { PhaseNaming } from '../board/conventions/phaseNames.js';
 import type { DriverColumns, DriverSpec } from './batchNetwork.js';
 import { compileBatchNetwork } from './batchNetwork.js';
-import type { SwitchingFromBank } from './switchingFromBank.js';
+import type { BankDesign, SwitchingFromBank } from './switchingFromBank.js';
 import type { SequenceReport } from './checkIntervalSequence.js';
 import { PROFILE_DEFAULTS } from './profileDefaults.js';
 import type { ProfileSpec } from './profileSpec.js';
@@ -65,6 +65,8 @@ export interface BankStepRun {
 export interface ProfileBankResult {
   /** Where the steps came from: sized here from the profile, profile.bank.steps, or the correction study. */
   readonly source: 'profile' | 'board-file-steps' | 'correction-study';
+  /** With a correction study's bank: which arrangement, and whether trivar correct recommended it; otherwise null. */
+  readonly design: BankDesign | null;
   readonly sizedFromProfile: boolean;
   readonly needKvar: Readonly<Record<string, number>> | null;
   readonly steps: readonly BankStepRun[];

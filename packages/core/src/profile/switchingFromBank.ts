@@ -25,6 +25,15 @@ export interface SwitchingFromBank {
   readonly notSimulated: readonly number[];
   /** Fixed kvar on line-to-line single branches, which the simulator cannot place either. */
   readonly fixedNotSimulatedKvar: number;
+  /** Which correction design this is, for the report to name it (set by whoever took it from a study). */
+  readonly design?: BankDesign;
+}
+
+/** The correction study a simulated bank comes from: its arrangement, in the board's words, and whether it was recommended (no arrangement named). */
+export interface BankDesign {
+  readonly arrangement: string;
+  readonly words: string;
+  readonly recommended: boolean;
 }
 
 export function switchingFromBank(steps: readonly BankStep[], controller: ControllerSettings): SwitchingFromBank {
