@@ -69,7 +69,11 @@ describe('a correction section naming no arrangement: the one trivar correct rec
     expect(r.stderr).toBe('');
     expect(r.code).toBe(0);
     const named = JSON.parse(runTrivar(['profile', 'examples/quay-street-flats.yaml', '--data', quayData, '--correction-bank', '--json']).stdout);
-    expect(JSON.parse(r.stdout).bank).toEqual(named.bank);
+    // The same bank; only how it was chosen differs (bank.design, which the report words).
+    const { design, ...bank } = JSON.parse(r.stdout).bank;
+    const { design: namedDesign, ...namedBank } = named.bank;
+    expect(bank).toEqual(namedBank);
+    expect([design.recommended, namedDesign.recommended]).toEqual([true, false]);
     expect(named.bank.steps.length).toBe(4);
   });
 
@@ -103,7 +107,7 @@ describe('what cannot be drawn or simulated truly is refused, saying why and wha
     expect(r.stdout).toBe('');
     noTrace(r.stderr);
     expect(r.stderr).toContain('--correction-bank: the balancing compensator needs reactors (17.73 kvar on C-A, 4.53 kvar on B-N) beside its capacitors');
-    expect(r.stderr).toContain('the simulator switches capacitor steps that are three-phase or from a line to the neutral (correction.arrangement: star-bank, or delta-bank); or use --bank');
+    expect(r.stderr).toContain('the simulator switches capacitor steps that are three-phase, from a line to the neutral, or across two lines (correction.arrangement: star-bank, or delta-bank); or use --bank');
   });
 
   it('no unit suits the bank: nothing as built to draw or simulate', () => {
@@ -122,7 +126,7 @@ describe('what cannot be drawn or simulated truly is refused, saying why and wha
     expect(run.stderr).toMatch(/^error: --correction-bank: no unit of the catalogue suits the balancing compensator .*so there is no bank as built to simulate/);
   });
 
-  it('a split-phase line-to-line bank: every step across the two lines, none simulated', () => {
+  it('a split-phase line-to-line bank: its steps across the two lines are simulated, answering to both lines', () => {
     const panel = [
       'name: Farm shop panel',
       'supply: { system: split-phase, voltage: "120/240", frequencyHz: 60, transformer: { kVA: 50, impedancePercent: 2, xOverR: 2 } }',
@@ -137,14 +141,15 @@ describe('what cannot be drawn or simulated truly is refused, saying why and wha
     // trivar correct recommends the line-to-line bank here.
     expect(JSON.parse(runTrivar(['correct', file, '--json']).stdout).recommended).toBe('delta-bank');
     const data = write('farm.csv', 'time,Well pump [x]\n2025-06-01 12:00,1\n2025-06-01 12:15,0.4\n');
-    const r = runTrivar(['profile', file, '--data', data, '--unlisted-at-rating', '--correction-bank']);
-    expect(r.code).toBe(2);
-    noTrace(r.stderr);
-    expect(r.stderr).toContain(
-      '--correction-bank: every step of the recommended line-to-line bank (the file\'s correction section names no arrangement) is across a pair of lines (L1-L2); the simulator switches three-phase steps and steps from a line to the neutral only',
-    );
-    // A split-phase board has no delta bank to offer instead.
-    expect(r.stderr).toContain('(correction.arrangement: star-bank); or use --bank');
+    const r = runTrivar(['profile', file, '--data', data, '--unlisted-at-rating', '--correction-bank', '--json']);
+    expect(r.stderr).toBe('');
+    expect(r.code).toBe(0);
+    const bank = JSON.parse(r.stdout).bank;
+    const designed = JSON.parse(runTrivar(['correct', file, '--arrangement', 'delta-bank', '--json']).stdout).selection.steps;
+    expect(bank.steps.map((s: { channel: string; kvar: number }) => [s.channel, s.kvar])).toEqual(designed.map((s: { kvarAtNominalV: number }) => ['A-B', s.kvarAtNominalV]));
+    expect(bank.notSimulated).toBeNull();
+    const text = runTrivar(['profile', file, '--data', data, '--unlisted-at-rating', '--correction-bank']).stdout;
+    expect(text).toMatch(/^ +1 {2}across L1-L2 /m);
   });
 
   it('no correction section: the message says a section with or without an arrangement will do', () => {

@@ -4,7 +4,7 @@
  * that every step gives exactly its rated kvar.
  */
 import { describe, expect, it } from 'vitest';
-import { normaliseBoard, parseBoard } from '@trivar/core';
+import { normaliseBoard, parseBoard, solveBoard } from '@trivar/core';
 import { simulateBank } from '../../packages/core/src/profile/simulateBank.js';
 import { hoursBelowTarget } from '../../packages/core/src/profile/studyProfile.js';
 import { expectClose } from '../support/tolerance.js';
@@ -139,5 +139,52 @@ describe('hours below the target with a banded bank', () => {
     const zero = new Float64Array(4);
     const f = { count: 4, lineA: [zero], neutralA: zero, phaseV: [zero], phaseW: [col([30, 30, 30, -5])], phaseVar: [col([5, 10, 20, 10])], unbalancePercent: zero };
     expect(hoursBelowTarget(f, 0.97, 0.995, 10, 900_000)).toEqual({ hours: 0.5, stepTooCoarseHours: 0.25 });
+  });
+});
+
+describe('a step across two lines', () => {
+  // A welder between A and B on a board with a real supply impedance: a 6 kvar step across A-B.
+  const weak = normaliseBoard(
+    parseBoard({
+      supply: { system: 'three-phase-4wire', voltage: { lineToLine: 400 }, frequencyHz: 50, transformer: { kVA: 50, impedancePercent: 4, xOverR: 3 } },
+      loads: [
+        { name: 'welder', connection: 'A-B', kW: 8, pf: 0.6 },
+        { name: 'lamps', connection: 'C-N', kW: 1, pf: 1 },
+      ],
+    }),
+  );
+  const n = 6;
+  const run = simulateBank({
+    board: weak,
+    drivers: [
+      { name: 'welder', loads: [{ load: 0, coefficient: { re: 1, im: 0 } }] },
+      { name: 'lamps', loads: [{ load: 1, coefficient: { re: 1, im: 0 } }] },
+    ],
+    columns: { count: n, re: [new Float64Array(n).fill(8000), new Float64Array(n).fill(1000)], im: [new Float64Array(n).fill(8000 * (0.8 / 0.6)), new Float64Array(n)] },
+    utcMs: Float64Array.from({ length: n }, (_, m) => t0 + m * 60_000),
+    intervalMs: 60_000,
+    steps: [{ kvar: 6, channel: 'A-B' }],
+    settings: { targetPf: 0.95, responseShare: 0.67, delaySeconds: 60, reconnectSeconds: 120, upperPf: 1 },
+  });
+
+  it('switches in on the need of lines A and B together, once', () => {
+    // Lines A and B carry the welder's 10.67 kvar against 8 kW·tan(acos 0.95) = 2.63 kvar: need 8.0 > 0.67 × 6.
+    expect([...run.connectedKvar]).toEqual([0, 6, 6, 6, 6, 6]);
+    expect(run.closings).toEqual([1]);
+  });
+
+  it('each interval with the step in is the board solved with a 6 kvar capacitor from A to B (solveBoard, the general solver)', () => {
+    const withStep = solveBoard({
+      supply: { system: 'three-phase-4wire', voltage: { lineToLine: 400 }, frequencyHz: 50, transformer: { kVA: 50, impedancePercent: 4, xOverR: 3 } },
+      loads: [
+        { name: 'welder', connection: 'A-B', kW: 8, pf: 0.6 },
+        { name: 'lamps', connection: 'C-N', kW: 1, pf: 1 },
+        { name: 'step', connection: 'A-B', kW: 0, kvar: -6, model: 'constant-impedance' },
+      ],
+    });
+    for (let k = 0; k < 3; k++) {
+      expectClose(run.figures.phaseVar[k]![3]!, withStep.phases[k]!.kvar * 1000, { rel: 1e-9, abs: 1e-6 }, `line ${k} var`);
+      expectClose(run.figures.phaseW[k]![3]!, withStep.phases[k]!.kW * 1000, { rel: 1e-9, abs: 1e-6 }, `line ${k} W`);
+    }
   });
 });

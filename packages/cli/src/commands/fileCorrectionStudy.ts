@@ -80,7 +80,7 @@ export function switchedBankOf(c: FileCorrection, option: string): SwitchingFrom
   const label = labellerOf(r.verification.before.conventions.phaseNames);
   const system = r.verification.before.board.system;
   const threePhase = system === 'three-phase-4wire' || system === 'three-phase-3wire';
-  const accepted = `the simulator switches capacitor steps that are three-phase or from a line to the neutral (correction.arrangement: star-bank${threePhase ? ', or delta-bank' : ''}); or use --bank for a bank sized from the profile`;
+  const accepted = `the simulator switches capacitor steps that are three-phase, from a line to the neutral, or across two lines (correction.arrangement: star-bank${threePhase ? ', or delta-bank' : ''}); or use --bank for a bank sized from the profile`;
   const selection = r.selection;
   if (r.status === 'already-meets-target') throw new UsageError(`${option}: the board already meets the correction target, so ${what(c)} adds nothing to simulate`);
   if (r.status === 'no-suitable-units' || selection?.unbuildable)
@@ -95,7 +95,7 @@ export function switchedBankOf(c: FileCorrection, option: string): SwitchingFrom
   if (!bank.steps.length && !bank.fixed.length) {
     const across = [...new Set(selection.steps.flatMap((s) => s.branches))].map(label).join(', ');
     throw new UsageError(
-      `${option}: every step of ${what(c)} is across a pair of lines (${across}); the simulator switches three-phase steps and steps from a line to the neutral only, so none of it can be simulated; ${accepted}`,
+      `${option}: no step of ${what(c)} is one the simulator can switch (its steps are on ${across}, several branches to a step that is not three-phase), so none of it can be simulated; ${accepted}`,
     );
   }
   return { ...bank, design: { arrangement: r.arrangement, words: arrangementNames(system)[r.arrangement], recommended: c.recommended !== null } };

@@ -131,7 +131,7 @@ export function bankLines(r: { readonly bank: ProfileResult['bank']; readonly be
     '',
     renderTable(
       [{ header: 'step' }, { header: 'where', align: 'left' }, { header: 'kvar' }, { header: 'closings' }, { header: 'per year' }],
-      b.steps.map((s) => [String(s.step), s.channel === 'ABC' ? 'three-phase' : `phase ${label(s.channel)}`, fixed(s.kvar, 1), thousands(s.closings), thousands(s.closingsPerYear)]),
+      b.steps.map((s) => [String(s.step), s.channel === 'ABC' ? 'three-phase' : s.channel.includes('-') ? `across ${label(s.channel)}` : `phase ${label(s.channel)}`, fixed(s.kvar, 1), thousands(s.closings), thousands(s.closingsPerYear)]),
     ),
     `  typical limit ${thousands(b.operationsPerYearLimit)} operations a year per step (IEC 60831-1 practice); a capacitor contactor lasts about ${thousands(b.contactorLifeOperations)} operations${
       b.yearsToContactorLife === null ? '' : ` — the busiest step reaches that in ${fixed(b.yearsToContactorLife, 1)} years`

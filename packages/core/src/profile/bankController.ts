@@ -2,7 +2,8 @@
  * An automatic capacitor-bank controller, step by step in time.
  *
  * Each step belongs to a channel: 'ABC' steps answer to the board's total P
- * and Q, a single-phase step to its own phase. The reactive need of a channel
+ * and Q, a single-phase step to its own phase, a step across two lines to the
+ * sum over those two lines (its output divides equally between them). The reactive need of a channel
  * is Q − max(P, 0)·tan φ_target (var; positive = more capacitance wanted).
  * A step switches in when the need exceeds the response threshold
  * (responseShare × the channel's smallest step — the C/k setting) for the
@@ -23,7 +24,10 @@
  */
 import type { PhaseId } from '../board/boardModel.js';
 
-export type StepChannel = 'ABC' | PhaseId;
+/** 'ABC': a three-phase step; a phase: a step from that line to the neutral; a line pair: a step across two lines. */
+export type StepChannel = 'ABC' | PhaseId | LinePair;
+export type LinePair = 'A-B' | 'B-C' | 'C-A';
+export const isLinePair = (channel: string): channel is LinePair => channel === 'A-B' || channel === 'B-C' || channel === 'C-A';
 
 export interface SwitchedStep {
   /** Output at nominal voltage, kvar (the channel's total: all three phases for 'ABC'). */

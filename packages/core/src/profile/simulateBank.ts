@@ -3,12 +3,13 @@
  * that are connected, the controller reads the result and switches for the
  * next interval. Steps are constant-impedance capacitors (output ∝ V², so the
  * voltage they raise is in the solve): three-phase steps as a star to the
- * neutral on a board with one, else as a delta; single-phase steps phase to neutral.
+ * neutral on a board with one, else as a delta; single-phase steps phase to neutral
+ * or across two lines.
  */
-import type { Board, Terminal } from '../board/boardModel.js';
+import type { Board, PhaseId, Terminal } from '../board/boardModel.js';
 import { compileBatchNetwork, edgeIndex, edgePowersAt, type BatchEdge, type DriverColumns, type DriverSpec } from './batchNetwork.js';
 import { allocateFigures, createBatchKernel, recordInterval, type BatchSolveOptions, type IntervalFigures } from './solveBatch.js';
-import { createBankController, type SwitchingSettings, type SwitchedStep, type StepChannel } from './bankController.js';
+import { createBankController, isLinePair, type SwitchingSettings, type SwitchedStep, type StepChannel } from './bankController.js';
 
 export interface BankRun {
   readonly figures: IntervalFigures;
@@ -25,6 +26,10 @@ export interface BankRun {
 function stepEdges(board: Board, channel: StepChannel): { edge: BatchEdge; share: number }[] {
   const ln = board.nominalLineToNeutralV;
   const ll = board.nominalLineToLineV ?? ln;
+  if (isLinePair(channel)) {
+    const [from, to] = channel.split('-') as [Terminal, Terminal];
+    return [{ edge: { from, to, vNominal: ll }, share: 1 }];
+  }
   if (channel !== 'ABC') return [{ edge: { from: channel, to: 'N', vNominal: ln }, share: 1 }];
   if (board.hasNeutral) return board.phases.map((p) => ({ edge: { from: p, to: 'N' as Terminal, vNominal: ln }, share: 1 / board.phases.length }));
   return [
@@ -142,6 +147,12 @@ export function switchBank(input: SwitchBankInput, prepare: (extraEdges: BatchEd
           q += read.phaseVar[k]![i]!;
         }
         return { w, var: q };
+      }
+      if (isLinePair(channel)) {
+        // A step across two lines: its output is shared by those two lines, so it answers to their sum.
+        const a = phaseIndex.get(channel[0] as PhaseId)!;
+        const b = phaseIndex.get(channel[2] as PhaseId)!;
+        return { w: read.phaseW[a]![i]! + read.phaseW[b]![i]!, var: read.phaseVar[a]![i]! + read.phaseVar[b]![i]! };
       }
       const k = phaseIndex.get(channel)!;
       return { w: read.phaseW[k]![i]!, var: read.phaseVar[k]![i]! };

@@ -13,7 +13,7 @@
  * upper limit (or unity where leading is not allowed) bounds what it switches in.
  */
 import type { BankStep, ControllerSettings } from '../correction/correctionResult.js';
-import type { SwitchedStep, SwitchingSettings } from './bankController.js';
+import { isLinePair, type StepChannel, type SwitchedStep, type SwitchingSettings } from './bankController.js';
 
 export interface SwitchingFromBank {
   readonly steps: readonly SwitchedStep[];
@@ -36,6 +36,13 @@ export interface BankDesign {
   readonly recommended: boolean;
 }
 
+/** A one-branch step's channel: its line (to the neutral) or its pair of lines; undefined for anything else. */
+function singleBranchChannel(branch: string): StepChannel | undefined {
+  const toNeutral = /^([ABC])-N$/.exec(branch);
+  if (toNeutral) return toNeutral[1] as StepChannel;
+  return isLinePair(branch) ? branch : undefined;
+}
+
 export function switchingFromBank(steps: readonly BankStep[], controller: ControllerSettings): SwitchingFromBank {
   const out: SwitchedStep[] = [];
   const fixed: SwitchedStep[] = [];
@@ -45,7 +52,7 @@ export function switchingFromBank(steps: readonly BankStep[], controller: Contro
   for (const s of steps) {
     const always = s.part === 'fixed' || s.output === null;
     if (always) fixedKvar += s.kvarAtNominalV;
-    const channel = s.kind === 'three-phase' ? 'ABC' : s.branches.length === 1 ? /^([ABC])-N$/.exec(s.branches[0] ?? '')?.[1] : undefined;
+    const channel = s.kind === 'three-phase' ? 'ABC' : s.branches.length === 1 ? singleBranchChannel(s.branches[0]!) : undefined;
     if (channel) (always ? fixed : out).push({ kvar: s.kvarAtNominalV, channel: channel as SwitchedStep['channel'], ...(s.output !== null ? { output: s.output } : {}) });
     else if (always) fixedNotSimulatedKvar += s.kvarAtNominalV;
     else notSimulated.push(s.output!);
