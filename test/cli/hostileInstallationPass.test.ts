@@ -99,6 +99,17 @@ correction: { arrangement: delta-bank, target: { pf: 0.95 } }
 `;
 
 describe('a collapsed supply: studies refuse it, as correct does, and report still writes the report', () => {
+  it('rebalance of a collapsed installation or board: exit 4, no work order for a state that cannot exist', () => {
+    const inst = runTrivar(['rebalance', '-'], collapsedRiser);
+    noStack(inst.stderr);
+    expect(inst.code).toBe(4);
+    expect(inst.stderr).toMatch(/no viable operating point.*Main, as it stands: the board voltage has collapsed.*Floor 1, as it stands: the board voltage has collapsed/);
+    expect(inst.stdout).toBe('');
+    const board = runTrivar(['rebalance', '-'], collapsedBoard);
+    expect(board.code).toBe(4);
+    expect(board.stderr).toMatch(/^error: no viable operating point: the supply cannot carry these loads: as it stands: the board voltage has collapsed/);
+    expect(board.stdout).toBe('');
+  });
   it('harmonics of a collapsed installation or board: exit 4, the collapse named per board, no figures', () => {
     const inst = runTrivar(['harmonics', '-'], collapsedRiser);
     noStack(inst.stderr);

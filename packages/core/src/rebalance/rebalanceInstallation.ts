@@ -15,6 +15,7 @@ import { parseOptions } from '../_internal/zodIssues.js';
 import { assertFiniteResult } from '../analysis/assertFiniteResult.js';
 import { analyseSolution } from '../analysis/analyseSolution.js';
 import { solveInstallationNetwork } from '../network/solveNetwork.js';
+import { collapseError } from '../analysis/viableOperatingPoint.js';
 import type { BoardResult } from '../analysis/boardResult.js';
 import type { VoltageCheck } from '../analysis/voltageCheck.js';
 import * as z from 'zod';
@@ -240,9 +241,12 @@ function capacityExcesses(built: BuiltProblem, study: ResolvedRebalance, choice:
 }
 
 /** Solved figures at each board of the installation, in one condition, and each board's voltages against its own limits. */
-function solveAtBoards(installation: Installation, condition: string, tree: RebalanceTree): { figures: ConditionFigures[]; voltages: VoltageCheck[] } {
+function solveAtBoards(installation: Installation, condition: string, tree: RebalanceTree, when: string): { figures: ConditionFigures[]; voltages: VoltageCheck[] } {
   const solution = solveInstallationNetwork(installation);
   const results = solution.boards.map((b) => assertFiniteResult(analyseSolution(b)));
+  // A work order for a supply that cannot carry its loads would rest on figures of a state that cannot exist.
+  const collapsed = results.flatMap((r, k) => (r.operatingPoint.collapsed ? r.operatingPoint.findings.map((f) => `${tree.names.length > 1 ? `${tree.names[k]}, ` : ''}${when}: ${f}`) : []));
+  if (collapsed.length) throw collapseError({ operatingPoint: { findings: collapsed } });
   return { figures: results.map((r, k) => solvedFigures(condition, tree.names[k]!, r)), voltages: results.map((r) => r.voltageCheck) };
 }
 
@@ -332,8 +336,8 @@ export function rebalanceInstallation(installation: Installation, study: unknown
   const beforeModel = figuresOf(built.layouts, p, homeChoice(p));
   const afterModel = figuresOf(built.layouts, p, choice);
   const solved = resolved.conditions.map((c) => ({
-    before: solveAtBoards(installationInCondition(tree, installation, c.factors), c.name, tree),
-    after: solveAtBoards(installationInCondition(tree, moved, c.factors), c.name, tree),
+    before: solveAtBoards(installationInCondition(tree, installation, c.factors), c.name, tree, resolved.conditions.length > 1 ? `${c.name}, as it stands` : 'as it stands'),
+    after: solveAtBoards(installationInCondition(tree, moved, c.factors), c.name, tree, resolved.conditions.length > 1 ? `${c.name}, after the moves` : 'after the moves'),
   }));
   const conditions: ConditionComparison[] = built.layouts.map((l, k) => {
     const b = tree.names.indexOf(l.board);
