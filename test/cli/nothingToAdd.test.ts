@@ -4,6 +4,7 @@
  * cautions for installing capacitors. The JSON keeps the whole study.
  */
 import { describe, expect, it } from 'vitest';
+import { readFileSync } from 'node:fs';
 import { runTrivar } from './runTrivar.js';
 
 const CABIN = 'examples/pine-hollow-cabin.yaml';
@@ -50,5 +51,29 @@ describe('the per-line target says which voltage each line is read on', () => {
     ).stdout;
     expect(threeWire).toMatch(/per line \(voltage\s+to the virtual neutral: the board has no neutral\)/);
     expect(threeWire).not.toMatch(/neutral bar/);
+  });
+});
+
+describe('the report of a board or installation with nothing to add', () => {
+  // HTML to standard output: the correction section and what the report leaves out.
+  const sectionOf = (html: string) => html.slice(html.indexOf('<section id="correction"'), html.indexOf('<section id="assumptions"'));
+  it('a board: the verdict with every arrangement studied and the lines as solved; no drawings, equipment or capacitor cautions', () => {
+    const text = `${readFileSync(CABIN, 'utf8')}correction: { target: { pf: 0.95 } }\n`;
+    const r = runTrivar(['report', '-'], text);
+    expect(r.code).toBe(0);
+    const section = sectionOf(r.stdout);
+    expect(section).toContain('every arrangement studied (line-to-neutral bank, line-to-line bank) would add nothing');
+    expect(section).toContain('Each line as solved, without equipment');
+    expect(section).not.toMatch(/<svg|Equipment to install|before and after/);
+    expect(r.stdout).not.toMatch(/Capacitors hold their charge|Harmonics and resonance|IEC 60831-1/);
+  });
+  it('an installation whose board draws nothing: the reason, and no table of every board before → after', () => {
+    const text = `${readFileSync('test/fixtures/hostile/idle-plant-room.yaml', 'utf8')}correction: { board: Plant room, target: { pf: 0.95 } }\n`;
+    const r = runTrivar(['report', '-'], text);
+    expect(r.code).toBe(0);
+    const section = sectionOf(r.stdout);
+    expect(section).toContain('would add nothing');
+    expect(section).toContain('the board draws no active power');
+    expect(r.stdout).not.toMatch(/Capacitors hold their charge|→/);
   });
 });

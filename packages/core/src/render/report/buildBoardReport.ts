@@ -14,7 +14,7 @@ import type { HandCheckResult } from '../../handCheck/handCheckResult.js';
 import { handCheckSection } from './handCheckSection.js';
 import type { ReportDocument, ReportSection } from './reportDocument.js';
 import { installationSection, openNeutralSection, resultsSection, scheduleSection } from './boardSections.js';
-import { correctionSection, resonanceSection } from './correctionSection.js';
+import { correctionSection, nothingToAdd, resonanceSection } from './correctionSection.js';
 import { BOARD_STANDARDS, CORRECTION_ASSUMPTIONS, CORRECTION_STANDARDS, MODEL_ASSUMPTIONS, THREE_PHASE_STANDARDS } from './reportWording.js';
 
 export interface BoardReportInput {
@@ -98,15 +98,17 @@ export function buildBoardReport(input: BoardReportInput): ReportDocument {
   const openNeutral = openNeutralSection(result);
   if (openNeutral) sections.push(openNeutral);
   const comparison = input.correctionComparison ?? null;
+  const idle = nothingToAdd(correction, comparison);
   if (correction) {
     sections.push(correctionSection(correction, comparison));
-    const resonance = resonanceSection(correction);
+    const resonance = idle ? null : resonanceSection(correction);
     if (resonance) sections.push(resonance);
   } else if (comparison) sections.push(correctionComparisonSection(comparison, result.board.system));
   if (input.harmonics) placeSection(sections, harmonicsSection(input.harmonics));
   if (input.handCheck) placeSection(sections, handCheckSection(input.handCheck.result, input.handCheck.triangles, result.conventions.phaseNames));
   for (const extra of input.studySections ?? []) placeSection(sections, extra);
-  sections.push(...closingSections({ results: [result], correction, harmonics: input.harmonics ?? null, handCheck: input.handCheck?.result ?? null }));
+  // Nothing to install: no capacitor assumptions, standards or cautions.
+  sections.push(...closingSections({ results: [result], correction: idle ? null : correction, harmonics: input.harmonics ?? null, handCheck: input.handCheck?.result ?? null }));
   return {
     title: result.board.name,
     subtitle: `Board report · ${result.board.nominalLineToNeutralV.toFixed(0)} V line-to-neutral · ${result.board.frequencyHz} Hz`,

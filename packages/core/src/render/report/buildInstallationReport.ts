@@ -16,7 +16,7 @@ import { installationHarmonicsSections } from './installationHarmonicsSections.j
 import type { ReportDocument, ReportSection } from './reportDocument.js';
 import { boardSection, boardSectionIds, feedersSection, installationDescription, totalsSection } from './installationSections.js';
 import { closingSections, placeSection } from './buildBoardReport.js';
-import { correctionSection, resonanceSection } from './correctionSection.js';
+import { correctionSection, nothingToAdd, resonanceSection } from './correctionSection.js';
 import { openNeutralSection } from './boardSections.js';
 import { INSTALLATION_ASSUMPTIONS } from './reportWording.js';
 
@@ -63,11 +63,13 @@ export function buildInstallationReport(input: InstallationReportInput): ReportD
   }
   const correction = input.correction ?? null;
   const compared = input.correctionComparison ?? null;
+  const idle = nothingToAdd(correction?.report ?? null, compared?.comparison ?? null);
   if (correction) {
     sections.push(atBoard(correctionSection(correction.report, compared?.comparison ?? null), correction.board));
-    const resonance = resonanceSection(correction.report);
+    const resonance = idle ? null : resonanceSection(correction.report);
     if (resonance) sections.push(atBoard(resonance, correction.board));
-    sections.push(installationCorrectionSection(correction.effect));
+    // Nothing added: every board's before → after would read "x → x".
+    if (!idle) sections.push(installationCorrectionSection(correction.effect));
   } else if (compared) sections.push(atBoard(correctionComparisonSection(compared.comparison, input.result.installation.system), compared.board));
   const harmonics = input.harmonics ?? null;
   if (harmonics) {
@@ -81,7 +83,7 @@ export function buildInstallationReport(input: InstallationReportInput): ReportD
   sections.push(
     ...closingSections({
       results: result.boards.map((b) => b.result),
-      correction: correction?.report ?? null,
+      correction: idle ? null : (correction?.report ?? null),
       harmonics,
       handCheck: null,
       assumptions: INSTALLATION_ASSUMPTIONS,

@@ -7,7 +7,7 @@ import type { CorrectionReport } from '../../correction/correctionResult.js';
 import type { CorrectionComparison } from '../../correction/compareCorrections.js';
 import type { HarmonicCorrectionReport } from '../../harmonics/correctWithHarmonics.js';
 import { correctionComparisonBlocks } from './correctionComparisonBlocks.js';
-import { arrangementDescriptions, meteringPointWords } from '../../correction/correctionWording.js';
+import { arrangementDescriptions, arrangementNames, meteringPointWords } from '../../correction/correctionWording.js';
 import { fixed } from '../svgText.js';
 import { renderPhasorDiagram } from '../renderPhasorDiagram.js';
 import { renderCurrentTriangles } from '../renderCurrentTriangles.js';
@@ -76,8 +76,46 @@ function meteringFacts(report: CorrectionReport): [string, string][] {
   ];
 }
 
+/** True when the study adds nothing: the board already meets the target (and, compared, so it does for every arrangement). */
+export function nothingToAdd(report: CorrectionReport | null, comparison: CorrectionComparison | null = null): boolean {
+  if (report?.status !== 'already-meets-target') return false;
+  return comparison === null || comparison.outcomes.every((o) => !o.report || o.report.status === 'already-meets-target');
+}
+
+/**
+ * A board that already meets the target: the verdict and the lines it rests on. No equipment,
+ * before → after table or drawings (each would show no change), and no capacitor cautions (the
+ * report leaves them out too, see buildBoardReport.ts).
+ */
+function nothingToAddSection(report: CorrectionReport, comparison: CorrectionComparison | null): ReportSection {
+  const v = report.verification;
+  const label = labellerOf(v.before.conventions.phaseNames);
+  const names = arrangementNames(v.before.board.system);
+  const studied = comparison ? comparison.outcomes.filter((o) => o.report).map((o) => names[o.arrangement]) : [names[report.arrangement]];
+  const who = studied.length === 1 ? `a ${studied[0]}` : `every arrangement studied (${studied.join(', ')})`;
+  const blocks: ReportBlock[] = [
+    { kind: 'paragraph', text: `The board already meets the correction target (${report.target.statement}; PF at least ${fixed(report.target.pf, 3)}): ${who} would add nothing.` },
+  ];
+  if (report.reasons.length) blocks.push({ kind: 'list', tone: 'warning', items: report.reasons });
+  blocks.push({
+    kind: 'table',
+    caption: 'Each line as solved, without equipment',
+    columns: [{ label: 'Line' }, { label: 'A', align: 'right' }, { label: 'Active A', align: 'right' }, { label: 'Reactive A', align: 'right' }, { label: 'PF', align: 'right' }],
+    rows: v.lines.map((l) => [
+      label(l.phase),
+      fixed(l.currentA.before, 1),
+      fixed(l.activeCurrentA.before, 1),
+      fixed(l.reactiveCurrentA.before, 1),
+      `${l.pf.before === null ? '—' : fixed(l.pf.before, 3)} ${l.sense.before === 'leading' ? 'lead' : l.sense.before === 'lagging' ? 'lag' : ''}`.trim(),
+    ]),
+    note: 'Active and reactive parts of each line current, along and across its own line-to-neutral voltage (reactive above zero is lagging).',
+  });
+  return { id: 'correction', title: 'Correction recommendation', blocks };
+}
+
 /** @param comparison the arrangements compared, when the study named none and `report` is the one recommended */
 export function correctionSection(report: CorrectionReport, comparison: CorrectionComparison | null = null): ReportSection {
+  if (nothingToAdd(report, comparison)) return nothingToAddSection(report, comparison);
   const v = report.verification;
   // Lines as the board file names them (L1 or A).
   const label = labellerOf(v.before.conventions.phaseNames);
