@@ -99,6 +99,19 @@ correction: { arrangement: delta-bank, target: { pf: 0.95 } }
 `;
 
 describe('a collapsed supply: studies refuse it, as correct does, and report still writes the report', () => {
+  it('diagram of a collapsed installation or board: the drawing is written, then exit 4 naming the collapse, as solve does', () => {
+    for (const [text, args] of [
+      [collapsedRiser, ['--view', 'one-line']],
+      [collapsedRiser, ['--board', 'Floor 1']],
+      [collapsedBoard, []],
+    ] as const) {
+      const r = runTrivar(['diagram', '-', ...args], text);
+      noStack(r.stderr);
+      expect(r.code).toBe(4);
+      expect(r.stdout).toMatch(/^<svg[\s\S]*<\/svg>\s*$/);
+      expect(r.stderr).toMatch(/^error: no viable operating point: the supply cannot carry these loads/);
+    }
+  });
   it('rebalance of a collapsed installation or board: exit 4, no work order for a state that cannot exist', () => {
     const inst = runTrivar(['rebalance', '-'], collapsedRiser);
     noStack(inst.stderr);

@@ -14,9 +14,11 @@ import {
   solveBoardModel,
   solveInstallationModel,
   type BoardResult,
+  type InstallationResult,
+  type NumericalError,
 } from '@trivar/core';
 import type { CliIo } from '../io.js';
-import { UsageError } from '../exitCodes.js';
+import { collapseOf, UsageError } from '../exitCodes.js';
 import { assertNotInput, writeOutputFile } from '../outputFiles.js';
 import { boardOptionOnBoardFile, chooseBoard } from './chooseBoard.js';
 import { boardCorrection, installationCorrection, type FileCorrection } from './fileCorrectionStudy.js';
@@ -38,7 +40,15 @@ function drawSolved(result: BoardResult, view: 'phasors' | 'sequence'): string {
   return view === 'sequence' ? renderSequenceDiagram(result) : renderPhasorDiagram(result);
 }
 
-function drawBoard(raw: unknown, view: DiagramView, options: DiagramCommandOptions): string {
+/** A drawing, and the collapse of the state it draws (the exit status once it is written, as for `trivar solve`). */
+interface Drawn {
+  readonly svg: string;
+  readonly collapse: NumericalError | null;
+}
+const studied = (svg: string): Drawn => ({ svg, collapse: null });
+const solved = (result: BoardResult | InstallationResult, svg: string): Drawn => ({ svg, collapse: collapseOf(result) });
+
+function drawBoard(raw: unknown, view: DiagramView, options: DiagramCommandOptions): Drawn {
   if (options.board !== undefined) throw boardOptionOnBoardFile('--board');
   if (view === 'one-line') throw new UsageError('the one-line view draws an installation (a file with boards:); this file is a single board — try --view phasors');
   const spec = parseBoard(raw);
@@ -47,9 +57,11 @@ function drawBoard(raw: unknown, view: DiagramView, options: DiagramCommandOptio
     if (!spec.correction) throw new UsageError(needsStudy(view));
     const study = boardCorrection(board, spec.correction, optionName(view));
     assertDrawable(study, optionName(view));
-    return drawCorrected(study.report.verification.before, study.report.verification.after, view, study.recommended);
+    // A correction study refuses a collapsed board (exit 4) before anything is drawn.
+    return studied(drawCorrected(study.report.verification.before, study.report.verification.after, view, study.recommended));
   }
-  return drawSolved(solveBoardModel(board), view);
+  const result = solveBoardModel(board);
+  return solved(result, drawSolved(result, view));
 }
 
 /**
@@ -78,13 +90,14 @@ function assertDrawable(study: FileCorrection, option: string): void {
   );
 }
 
-function drawInstallation(raw: unknown, view: DiagramView, options: DiagramCommandOptions): string {
+function drawInstallation(raw: unknown, view: DiagramView, options: DiagramCommandOptions): Drawn {
   const spec = parseInstallation(raw);
   const { installation } = normaliseInstallation(spec);
   if (view === 'one-line') {
     if (options.board !== undefined) throw new UsageError('the one-line view draws the whole installation: leave out --board, or choose --view phasors or sequence for one board');
     if (options.withCorrection) throw new UsageError('the one-line view draws the installation as solved: leave out --with-correction');
-    return renderOneLineDiagram(solveInstallationModel(installation));
+    const whole = solveInstallationModel(installation);
+    return solved(whole, renderOneLineDiagram(whole));
   }
   if (view === 'triangles' || options.withCorrection) {
     if (!spec.correction) throw new UsageError(needsStudy(view));
@@ -95,19 +108,21 @@ function drawInstallation(raw: unknown, view: DiagramView, options: DiagramComma
     const effect = corrected.effect;
     const name = chooseBoard([effect.board, ...effect.before.boards.map((b) => b.name).filter((n) => n !== effect.board)], options.board);
     const at = (r: typeof effect.before) => r.boards.find((b) => b.name === name)!.result;
-    return drawCorrected(at(effect.before), at(effect.after), view, corrected.recommended);
+    return studied(drawCorrected(at(effect.before), at(effect.after), view, corrected.recommended));
   }
   const result = solveInstallationModel(installation);
   const name = chooseBoard(result.boards.map((b) => b.name), options.board);
-  return drawSolved(result.boards.find((b) => b.name === name)!.result, view);
+  return solved(result, drawSolved(result.boards.find((b) => b.name === name)!.result, view));
 }
 
 export async function runDiagram(file: string, options: DiagramCommandOptions, io: CliIo): Promise<string> {
   const view = options.view ?? 'phasors';
   if (options.output) assertNotInput([options.output], [file]);
   const raw = readBoardText(await io.readSource(file));
-  const svg = isInstallationInput(raw) ? drawInstallation(raw, view, options) : drawBoard(raw, view, options);
+  const { svg, collapse } = isInstallationInput(raw) ? drawInstallation(raw, view, options) : drawBoard(raw, view, options);
   if (options.output) writeOutputFile(options.output, svg);
   else io.stdout(svg);
+  // As `trivar solve`: the drawing of a collapsed state is written, then the collapse is the exit status.
+  if (collapse) throw collapse;
   return svg;
 }
