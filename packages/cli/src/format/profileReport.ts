@@ -1,6 +1,7 @@
 /** ProfileResult → the text report of `trivar profile`. */
 import { billingPowerFactorText, labellerOf, type PhaseLabeller, type ProfileResult, type ProfileSummary, type ScenarioResult, type BoardScenarios } from '@trivar/core';
 import { fixed, renderTable, section } from './textTable.js';
+import { wrapText } from './wrapText.js';
 
 const hours = (h: number) => (h === 0 ? '0' : h < 10 ? fixed(h, 2) : fixed(h, 1));
 const thousands = (x: number) => Math.round(x).toLocaleString('en-US');
@@ -60,7 +61,16 @@ export function thresholdLines(s: ProfileSummary, r: Pick<ProfileResult, 'limits
   if (s.unbalance)
     out.push(`voltage unbalance |V2|/|V1|: peak ${fixed(s.unbalance.maxPercent, 2)} % at ${s.unbalance.maxAt}, P95 ${fixed(s.unbalance.p95Percent, 2)} %, above ${fixed(l.unbalancePercent, 1)} %: ${hours(s.unbalance.hoursAbove)} h`);
   out.push(`import at a leading power factor: ${hours(s.leadingHours)} h`);
-  return out.map((x) => `  ${x}`);
+  const lines = out.map((x) => `  ${x}`);
+  if (s.hoursCollapsed > 0)
+    lines.push(
+      wrapText(
+        `! a phase voltage below 50 % of nominal for ${hours(s.hoursCollapsed)} h: there the supply cannot carry the load (trivar solve calls that state a collapse), and the figures of those intervals describe a state the real loads would not settle in`,
+        '  ',
+        '    ',
+      ),
+    );
+  return lines;
 }
 
 export function energyTable(s: ProfileSummary, label: PhaseLabeller): string {

@@ -2,6 +2,7 @@
  * Per-interval figures → the summary people read: peaks and percentiles with
  * when they happen, hours beyond thresholds, energy, calendar months.
  */
+import { SUPPLY_LIMITS } from '../analysis/readSupplyState.js';
 import { asPrinted, type VoltageLimits } from '../board/conventions/voltageLimits.js';
 import type { Board } from '../board/boardModel.js';
 import type { IntervalFigures } from './solveBatch.js';
@@ -55,6 +56,12 @@ export interface ProfileSummary {
   readonly voltages: readonly VoltageSummary[];
   readonly hoursVoltageLow: number;
   readonly hoursVoltageHigh: number;
+  /**
+   * Hours in which a phase voltage is below SUPPLY_LIMITS.collapsedVoltagePercent (50 %) of nominal: past
+   * the nose of the supply's P–V curve, where `trivar solve` reports a collapse. Those intervals' figures
+   * describe a state the real loads would not settle in.
+   */
+  readonly hoursCollapsed: number;
   readonly unbalance: { readonly maxPercent: number; readonly maxAt: string; readonly p95Percent: number; readonly hoursAbove: number } | null;
   readonly energy: {
     readonly phases: readonly { readonly phase: string; readonly kWh: number; readonly kvarh: number }[];
@@ -120,6 +127,8 @@ export function summariseFigures(f: IntervalFigures, ctx: SummaryContext): Profi
   });
   let low = 0;
   let high = 0;
+  let collapsed = 0;
+  const collapseV = (SUPPLY_LIMITS.collapsedVoltagePercent / 100) * board.nominalLineToNeutralV;
   for (let i = 0; i < n; i++) {
     let lo = Number.POSITIVE_INFINITY;
     let hi = 0;
@@ -130,6 +139,7 @@ export function summariseFigures(f: IntervalFigures, ctx: SummaryContext): Profi
     // Judged as printed (0.1 %), as the board's voltage verdict is, so the lowest and highest printed beside the hours agree with them.
     if (asPrinted(lo * vPct) < limits.voltageLowPercent) low++;
     if (asPrinted(hi * vPct) > limits.voltageHighPercent) high++;
+    if (lo < collapseV) collapsed++;
   }
   const totalW = new Float64Array(n);
   const totalVar = new Float64Array(n);
@@ -162,6 +172,7 @@ export function summariseFigures(f: IntervalFigures, ctx: SummaryContext): Profi
     voltages,
     hoursVoltageLow: low * h,
     hoursVoltageHigh: high * h,
+    hoursCollapsed: collapsed * h,
     unbalance: threePhase
       ? {
           maxPercent: vuMax.value,

@@ -50,6 +50,7 @@ function boardBlocks(p: BoardProfileView, charts: readonly ProfileChart[], namin
         ['Hours importing at a leading PF', fixed(s.leadingHours, 1)],
         ...((s.unbalance ? [['Voltage unbalance, highest / 95th percentile', `${fixed(s.unbalance.maxPercent, 2)} % (${s.unbalance.maxAt}) / ${fixed(s.unbalance.p95Percent, 2)} %`]] : []) as [string, string][]),
         [`Hours below ${limitPercent(p.limits.voltageLowPercent)} % / above ${limitPercent(p.limits.voltageHighPercent)} % (${bandWords(p.limits)})`, `${fixed(s.hoursVoltageLow, 1)} / ${fixed(s.hoursVoltageHigh, 1)}`],
+        ...(s.hoursCollapsed > 0 ? ([['Hours with a phase below 50 % of nominal (the supply cannot carry the load: a collapse)', fixed(s.hoursCollapsed, 2)]] as [string, string][]) : []),
       ],
     },
     {
