@@ -2,7 +2,18 @@
  * `trivar correct` on an installation: where the equipment goes, the study on that board, then what the
  * equipment does to every board, feeder and the supply (fits 100 columns).
  */
-import { meteringPointWords, type BeforeAfter, type InstallationComparison, type InstallationCorrection, type InstallationEffect } from '@trivar/core';
+import {
+  meteringPointWords,
+  type BeforeAfter,
+  type InstallationComparison,
+  type InstallationCorrection,
+  type InstallationEffect,
+  type InstallationHarmonicComparison,
+  type InstallationHarmonicCorrection,
+  type ResonanceWithoutBank,
+} from '@trivar/core';
+import { renderComparisonHarmonics, renderCorrectionHarmonics } from './correctionHarmonicsReport.js';
+import { comparedSystem, tableNames } from './comparisonReport.js';
 import { fixed, renderTableWithin, section } from './textTable.js';
 import { treeName } from './boardTree.js';
 import { renderCorrectionReport } from './correctionReport.js';
@@ -13,7 +24,7 @@ const note = (text: string) => `${wrapText(text, '  (', '   ', REPORT_WIDTH - 1)
 const change = (x: BeforeAfter | null, digits: number) => (x === null ? '' : `${fixed(x.before, digits)} → ${fixed(x.after, digits)}`);
 /** The same without spaces, for table cells (keeps the tables inside 100 columns). */
 const cell = (x: BeforeAfter | null, digits: number) => (x === null ? '' : `${fixed(x.before, digits)}→${fixed(x.after, digits)}`);
-function placeLines(c: InstallationCorrection | InstallationComparison): string {
+function placeLines(c: Omit<InstallationCorrection | InstallationComparison, 'report' | 'comparison'>): string {
   const where = c.boardIndex === 0 ? `${c.board} (the main board)` : c.board;
   const judged = c.measuredAt === undefined ? `the incomer of ${c.board}` : meteringPointWords(c.measuredAt);
   return [
@@ -112,4 +123,33 @@ export function renderInstallationComparison(c: InstallationComparison): string 
     ? `\nThe recommended ${c.comparison.recommended?.replace('-', ' ') ?? ''} across the installation\n${renderInstallationEffect(c.effect)}`
     : '';
   return `${placeLines(c)}\n${renderComparisonReport(c.comparison)}${effect}`;
+}
+
+const INSTALLATION_DETAILS =
+  'details: trivar harmonics on the installation file (with the bank as its harmonics.banks gives it); --json carries the chosen bank’s study on the whole installation (report.harmonics.check)';
+
+/** What the installation resonates near with none of the new bank in service: the other banks' doing, not counted against it. */
+function withoutBankLines(board: string, w: ResonanceWithoutBank | null): string {
+  if (!w || (w.withOtherBanksOn.length === 0 && w.withOtherBanksSwitched.length === 0)) return '';
+  const parts = [
+    ...(w.withOtherBanksOn.length ? [`near order ${w.withOtherBanksOn.join(', ')} with every other bank on`] : []),
+    ...w.withOtherBanksSwitched.map((s) => `near order ${s.order} (h ${fixed(s.peakOrder, 2)}) with ${s.otherBanks}`),
+  ];
+  return `${wrapText(
+    `! with none of the new bank in service, the installation seen from ${board} already resonates ${parts.join('; ')}: the other banks' matter (trivar harmonics studies them), not counted against this bank`,
+    '  ',
+    '    ',
+  )}\n`;
+}
+
+export function renderInstallationCorrectionWithHarmonics(c: InstallationHarmonicCorrection): string {
+  return `${placeLines(c)}\n${renderCorrectionReport(c.report)}${renderCorrectionHarmonics(c.report.harmonics, INSTALLATION_DETAILS)}${withoutBankLines(c.board, c.resonanceWithoutBank)}${renderInstallationEffect(c.effect)}`;
+}
+
+export function renderInstallationComparisonWithHarmonics(c: InstallationHarmonicComparison): string {
+  const effect = c.effect
+    ? `\nThe recommended ${c.comparison.recommended?.replace('-', ' ') ?? ''} across the installation\n${renderInstallationEffect(c.effect)}`
+    : '';
+  const harmonics = renderComparisonHarmonics(c.comparison.harmonics, tableNames(comparedSystem(c.comparison)));
+  return `${placeLines(c)}\n${renderComparisonReport(c.comparison)}${harmonics}${withoutBankLines(c.board, c.resonanceWithoutBank)}${effect}`;
 }
