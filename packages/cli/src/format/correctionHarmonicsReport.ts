@@ -34,7 +34,7 @@ export function renderCorrectionHarmonics(h: CorrectionHarmonics<unknown>, detai
       { header: 'kvar' },
       { header: 'peak h' },
       { header: 'near h', align: 'left' },
-      ...(switched ? [{ header: 'switched h', align: 'left' as const }] : []),
+      ...(switched ? [{ header: 'sw. h', align: 'left' as const }] : []),
       { header: 'duty' },
       { header: 'check', align: 'left' },
     ],
@@ -55,7 +55,7 @@ export function renderCorrectionHarmonics(h: CorrectionHarmonics<unknown>, detai
   return [
     section('Harmonic check: plain and detuned banks'),
     wrapText(
-      `* = the bank above; kvar = delivered; peak h = lowest resonance of any step combination${switched ? ' with some of the bank on, every other bank on; switched h = orders near a peak only with the other banks switched; orders near one without the new bank are not counted' : ''}; duty = worst / limit`,
+      `* = the bank above; kvar = delivered; peak h = lowest resonance of any step combination${switched ? ' with some of the bank on, every other bank on; sw. h = orders near a peak only with the other banks switched; orders near one without the new bank are not counted' : ''}; duty = worst / limit`,
       '  ',
       '    ',
     ),
@@ -91,7 +91,7 @@ export function renderComparisonHarmonics(h: HarmonicComparison['harmonics'], na
   return [
     section('Harmonic check of every arrangement: plain and detuned banks'),
     wrapText(
-      `* = the variant each arrangement is shown as above; kvar = delivered; peak h = lowest resonance${switched ? ' with some of the bank on, every other bank on; switched h = orders near a peak only with the other banks switched; orders near one without the new bank are not counted' : ''}; duty = worst / limit`,
+      `* = the variant each arrangement is shown as above; kvar = delivered; peak h = lowest resonance${switched ? ' with some of the bank on, every other bank on; sw. h = orders near a peak only with the other banks switched; orders near one without the new bank are not counted' : ''}; duty = worst / limit`,
       '  ',
       '    ',
     ),
@@ -104,7 +104,7 @@ export function renderComparisonHarmonics(h: HarmonicComparison['harmonics'], na
         { header: 'kvar' },
         { header: 'peak h' },
         { header: 'near h', align: 'left' },
-        ...(switched ? [{ header: 'switched h', align: 'left' as const }] : []),
+        ...(switched ? [{ header: 'sw. h', align: 'left' as const }] : []),
         { header: 'duty' },
         { header: 'check', align: 'left' },
       ],

@@ -126,7 +126,7 @@ export function renderInstallationComparison(c: InstallationComparison): string 
 }
 
 const INSTALLATION_DETAILS =
-  'details: trivar harmonics on the installation file (with the bank as its harmonics.banks gives it); --json carries the chosen bank’s study on the whole installation (report.harmonics.check)';
+  'details: --json carries the chosen bank’s study on the whole installation (report.harmonics.check); trivar harmonics on the installation file studies the banks its harmonics.banks lists';
 
 /** What the installation resonates near with none of the new bank in service: the other banks' doing, not counted against it. */
 function withoutBankLines(board: string, w: ResonanceWithoutBank | null): string {

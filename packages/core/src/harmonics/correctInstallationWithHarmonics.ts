@@ -21,6 +21,15 @@ import { installationEffect } from '../correction/installationEffect.js';
 import { bankOfReport, compareWithBankCheck, correctWithBankCheck, withStudyTolerance, type BankCheck, type BankChecker, type HarmonicComparison, type HarmonicCorrectionReport } from './correctWithHarmonics.js';
 import { analyseInstallationHarmonics, resolveInstallationHarmonics, type HarmonicsInstallationSpec } from './studyInstallationHarmonics.js';
 import type { BoardScan, InstallationHarmonicsReport } from './harmonicsResult.js';
+import { dutyRatio } from './capacitorDuty.js';
+import { conditionWords } from './dutyConditions.js';
+
+/** What the check on an installation adds to the basis. */
+const WORDING = {
+  file: 'installation file',
+  basis:
+    'on the installation: the scan from the bank’s board with the supply and every feeder in the path and the other banks of harmonics.banks in place (all on, and switched), the duty with the whole installation re-solved in every state; the bank designed here takes the place of a harmonics.banks entry on its board',
+} as const;
 
 /** Checked orders the installation resonates near, seen from the equipment's board, with none of the new bank in service. */
 export interface ResonanceWithoutBank {
@@ -82,8 +91,20 @@ export function installationBankChecker(spec: HarmonicsInstallationSpec, boardIn
       const best = switched.filter((s) => s.order === order).reduce((b, s) => (Math.abs(s.peak - order) < Math.abs(b.peak - order) ? s : b));
       return { order, words: best.words };
     });
+    // Each resonant order with the state whose peak is nearest it; the worst duty with its state and condition.
+    const resonanceWords = resonantOrders
+      .map((order) => {
+        const hits = inService.flatMap((k) => (scan.combinations[k]!.nearOrders.includes(order) ? scan.combinations[k]!.peaks.map((p) => ({ label: scan.combinations[k]!.label, peak: p.order })) : []));
+        const best = hits.reduce((b, x) => (Math.abs(x.peak - order) < Math.abs(b.peak - order) ? x : b));
+        return `${order} (${best.label}: h ${best.peak.toFixed(2)})`;
+      })
+      .join(', ');
+    const worst = capacitorDuty?.worst;
+    const dutyWords = worst && capacitorDuty ? `worst ${dutyRatio(worst.figures, capacitorDuty.limits).toFixed(2)} × the limit: ${worst.label}, ${conditionWords(worst.condition)}` : undefined;
     return {
       check,
+      ...(resonanceWords ? { resonanceWords } : {}),
+      ...(dutyWords ? { dutyWords } : {}),
       peakOrders: inService.flatMap((k) => scan.combinations[k]!.peaks.map((p) => p.order)),
       resonantOrders,
       ...(nearest ? { resonantOrdersOtherBanksSwitched: nearest } : {}),
@@ -103,7 +124,7 @@ export function installationBankChecker(spec: HarmonicsInstallationSpec, boardIn
 export function correctInstallationWithHarmonics(spec: HarmonicsInstallationSpec, installation: Installation, study: unknown, options?: CorrectInstallationOptions): InstallationHarmonicCorrection {
   const { board, placed } = placeCorrection(installation, options);
   let without: ResonanceWithoutBank | null = null;
-  const report = correctWithBankCheck(board, study, spec.harmonics?.detuning, installationBankChecker(spec, placed.boardIndex, (w) => (without ??= w)), { file: 'installation file' });
+  const report = correctWithBankCheck(board, study, spec.harmonics?.detuning, installationBankChecker(spec, placed.boardIndex, (w) => (without ??= w)), WORDING);
   return { ...placed, ...measuredAt(report), report, resonanceWithoutBank: without, effect: installationEffect(board, report.verification.equipment) };
 }
 
@@ -115,7 +136,7 @@ export function compareInstallationWithHarmonics(spec: HarmonicsInstallationSpec
   const { board, placed } = placeCorrection(installation, options);
   let without: ResonanceWithoutBank | null = null;
   const checker = installationBankChecker(spec, placed.boardIndex, (w) => (without ??= w));
-  const comparison = compareWithBankCheck(board, study, (arrangementStudy) => correctWithBankCheck(board, arrangementStudy, spec.harmonics?.detuning, checker, { file: 'installation file' }));
+  const comparison = compareWithBankCheck(board, study, (arrangementStudy) => correctWithBankCheck(board, arrangementStudy, spec.harmonics?.detuning, checker, WORDING));
   const chosen = comparison.outcomes.find((o) => o.arrangement === comparison.recommended)?.report;
   const studied = comparison.outcomes.find((o) => o.report !== null)?.report;
   return {

@@ -93,6 +93,10 @@ export interface BankCheck<Check> {
   readonly duty: CapacitorDuty | null;
   /** Largest 3rd-harmonic current of a line at the bank's board, % of its fundamental. */
   readonly thirdPercent: number;
+  /** The resonant orders in words with their figures (`7 (steps 1+2: h 7.04)`), where the check words them so. */
+  readonly resonanceWords?: string;
+  /** The worst duty in words with its figures, where the check words it so. */
+  readonly dutyWords?: string;
 }
 
 /** Checks the bank of a correction report (its steps with their detuning factor) on the harmonics. */
@@ -266,9 +270,9 @@ function variantOf<Check>(checkBank: BankChecker<Check>, board: Board, report: C
   const met = report.status === 'meets-target' || report.status === 'meets-target-at-nominal-capacitance' || report.status === 'already-meets-target';
   const reasons = [
     ...(met ? [] : [`the correction study ends "${report.status}"`]),
-    ...(resonantOrders.length ? [`a step combination resonates with the supply within ±10 % of order ${resonantOrders.join(', ')}`] : []),
+    ...(resonantOrders.length ? [`a step combination resonates with the supply within ±10 % of order ${checked.resonanceWords ?? resonantOrders.join(', ')}`] : []),
     ...(switched?.length ? [`with the other banks switched a step combination resonates within ±10 % of order ${switched.map((s) => `${s.order} (${s.words})`).join(', ')}`] : []),
-    ...(duty && !duty.ok ? ['the capacitors exceed their duty limits in some state'] : []),
+    ...(duty && !duty.ok ? [`the capacitors exceed their duty limits in some state${checked.dutyWords ? ` (${checked.dutyWords})` : ''}`] : []),
   ];
   const bank = bankOfReport(board, report);
   const elementV = bank?.model.elementNominalV ?? board.nominalLineToLineV ?? board.nominalLineToNeutralV;
@@ -307,6 +311,8 @@ const SIGNIFICANT_THIRD = 0.1;
 export interface HarmonicCheckWording {
   /** `board file`, `installation file`: where the spectra were entered. */
   readonly file: string;
+  /** What the check adds to the basis (the network it was made on). */
+  readonly basis?: string;
 }
 
 /**
@@ -365,7 +371,7 @@ export function correctWithBankCheck<Check>(
       chosen: chosen?.summary.name ?? null,
       variants: runs.map((v) => v.summary),
       check: shown.harmonics,
-      basis: 'each variant is sized for the same target with its effective fundamental output Q_r(U/U_r)²/(1 − p) and units rated for U/(1 − p) with the study’s voltage margin; every correction check is re-run, then the resonance scan and the capacitor duty of every step combination',
+      basis: `each variant is sized for the same target with its effective fundamental output Q_r(U/U_r)²/(1 − p) and units rated for U/(1 − p) with the study’s voltage margin; every correction check is re-run, then the resonance scan and the capacitor duty of every step combination${wording.basis ? `; ${wording.basis}` : ''}`,
     },
   };
 }
