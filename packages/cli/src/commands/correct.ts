@@ -57,11 +57,7 @@ async function runCorrectInstallation(input: unknown, options: CorrectCommandOpt
   try {
     // An installation file with harmonic data (spectra, a harmonics: section) gets the harmonic check
     // of the bank on its board, with detuned variants beside the plain one, as a board file does.
-    if (installationHasHarmonicData(spec)) {
-      const checked = await import('./correctWithHarmonicData.js');
-      if (study.arrangement === undefined) return { kind: 'comparison', comparison: checked.writeInstallationComparisonWithHarmonics(spec, installation, study, placement, options.json, io) };
-      return { kind: 'single', report: checked.writeInstallationCorrectionWithHarmonics(spec, installation, study, placement, options.json, io) };
-    }
+    if (installationHasHarmonicData(spec)) return (await import('./correctWithHarmonicData.js')).writeInstallationWithHarmonics(spec, installation, study, placement, options.json, io);
     if (study.arrangement === undefined) {
       const compared = compareInstallationCorrections(installation, study, placement);
       writeResult(io, compared, options.json, renderInstallationComparison);

@@ -17,6 +17,7 @@ import {
   type Installation,
 } from '@trivar/core';
 import type { CliIo } from '../io.js';
+import type { CorrectOutcome } from './correct.js';
 import { writeResult } from '../writeResult.js';
 import { renderCorrectionReport } from '../format/correctionReport.js';
 import { renderComparisonHarmonics, renderCorrectionHarmonics } from '../format/correctionHarmonicsReport.js';
@@ -37,30 +38,24 @@ export function writeCorrectionWithHarmonics(spec: BoardSpec, board: Board, stud
   return checked;
 }
 
-/** An installation file: the bank on its board with its harmonic check, every arrangement compared; writes the result. */
-export function writeInstallationComparisonWithHarmonics(
+/**
+ * An installation file: the bank on its board with its harmonic check — the arrangement the study names,
+ * or every arrangement compared; writes the result.
+ */
+export function writeInstallationWithHarmonics(
   spec: HarmonicsInstallationSpec,
   installation: Installation,
   study: Record<string, unknown>,
   placement: CorrectInstallationOptions,
   json: boolean | undefined,
   io: CliIo,
-): HarmonicComparison {
-  const compared = compareInstallationWithHarmonics(spec, installation, study, placement);
-  writeResult(io, compared, json, renderInstallationComparisonWithHarmonics);
-  return compared.comparison;
-}
-
-/** An installation file: one arrangement on its board with its harmonic check; writes the result. */
-export function writeInstallationCorrectionWithHarmonics(
-  spec: HarmonicsInstallationSpec,
-  installation: Installation,
-  study: Record<string, unknown>,
-  placement: CorrectInstallationOptions,
-  json: boolean | undefined,
-  io: CliIo,
-): HarmonicCorrectionReport<unknown> {
+): CorrectOutcome {
+  if (study.arrangement === undefined) {
+    const compared = compareInstallationWithHarmonics(spec, installation, study, placement);
+    writeResult(io, compared, json, renderInstallationComparisonWithHarmonics);
+    return { kind: 'comparison', comparison: compared.comparison };
+  }
   const corrected = correctInstallationWithHarmonics(spec, installation, study, placement);
   writeResult(io, corrected, json, renderInstallationCorrectionWithHarmonics);
-  return corrected.report;
+  return { kind: 'single', report: corrected.report };
 }
