@@ -54,10 +54,13 @@ async function runCorrectInstallation(input: unknown, options: CorrectCommandOpt
   const issues = meteringPointIssues(equipmentBoard, options.measuredAt, '--measured-at');
   if (issues.length) throw new InputError(issues, 'the options do not fit the installation');
   assertOptionsFit(fromFile as Record<string, unknown>, options, equipmentBoard);
+  // An installation file with harmonic data (spectra, a harmonics: section) gets the harmonic check
+  // of the bank on its board, with detuned variants beside the plain one, as a board file does.
+  const harmonic = installationHasHarmonicData(spec) ? await import('./correctWithHarmonicData.js') : null;
+  // Its harmonics section is checked before the study, so an error there is named at its own path.
+  harmonic?.checkHarmonicsSection(spec);
   try {
-    // An installation file with harmonic data (spectra, a harmonics: section) gets the harmonic check
-    // of the bank on its board, with detuned variants beside the plain one, as a board file does.
-    if (installationHasHarmonicData(spec)) return (await import('./correctWithHarmonicData.js')).writeInstallationWithHarmonics(spec, installation, study, placement, options.json, io);
+    if (harmonic) return harmonic.writeInstallationWithHarmonics(spec, installation, study, placement, options.json, io);
     if (study.arrangement === undefined) {
       const compared = compareInstallationCorrections(installation, study, placement);
       writeResult(io, compared, options.json, renderInstallationComparison);

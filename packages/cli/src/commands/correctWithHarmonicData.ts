@@ -8,6 +8,7 @@ import {
   compareWithHarmonics,
   correctInstallationWithHarmonics,
   correctWithHarmonics,
+  resolveInstallationHarmonics,
   type Board,
   type BoardSpec,
   type CorrectInstallationOptions,
@@ -36,6 +37,11 @@ export function writeCorrectionWithHarmonics(spec: BoardSpec, board: Board, stud
   const checked = correctWithHarmonics(spec, board, study);
   writeResult(io, checked, json, (r: HarmonicCorrectionReport) => renderCorrectionReport(r) + renderCorrectionHarmonics(r.harmonics));
   return checked;
+}
+
+/** Throws the installation file's harmonics-section errors (a bank on an unknown board…) at their paths. */
+export function checkHarmonicsSection(spec: HarmonicsInstallationSpec): void {
+  resolveInstallationHarmonics(spec);
 }
 
 /**

@@ -123,6 +123,8 @@ export function installationBankChecker(spec: HarmonicsInstallationSpec, boardIn
  */
 export function correctInstallationWithHarmonics(spec: HarmonicsInstallationSpec, installation: Installation, study: unknown, options?: CorrectInstallationOptions): InstallationHarmonicCorrection {
   const { board, placed } = placeCorrection(installation, options);
+  // The harmonics section is checked before the study runs (its banks' boards, one per board).
+  resolveInstallationHarmonics(spec);
   let without: ResonanceWithoutBank | null = null;
   const report = correctWithBankCheck(board, study, spec.harmonics?.detuning, installationBankChecker(spec, placed.boardIndex, (w) => (without ??= w)), WORDING);
   return { ...placed, ...measuredAt(report), report, resonanceWithoutBank: without, effect: installationEffect(board, report.verification.equipment) };
@@ -134,6 +136,7 @@ export function correctInstallationWithHarmonics(spec: HarmonicsInstallationSpec
  */
 export function compareInstallationWithHarmonics(spec: HarmonicsInstallationSpec, installation: Installation, study: unknown, options?: CorrectInstallationOptions): InstallationHarmonicComparison {
   const { board, placed } = placeCorrection(installation, options);
+  resolveInstallationHarmonics(spec);
   let without: ResonanceWithoutBank | null = null;
   const checker = installationBankChecker(spec, placed.boardIndex, (w) => (without ??= w));
   const comparison = compareWithBankCheck(board, study, (arrangementStudy) => correctWithBankCheck(board, arrangementStudy, spec.harmonics?.detuning, checker, WORDING));
