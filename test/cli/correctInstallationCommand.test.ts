@@ -33,6 +33,7 @@ describe('trivar correct on an installation file', () => {
     for (const line of r.stdout.split('\n')) expect(line.length, line).toBeLessThanOrEqual(100);
   });
 
+  // An installation with harmonic data checks every arrangement's plain and detuned banks on the whole installation (ferrybank-joinery: ~30 s).
   it.each(installations)('examples/%s: without options compares the arrangements at the main board within 100 columns', (file) => {
     const r = runTrivar(['correct', `examples/${file}`]);
     expect(r.stderr).toBe('');
@@ -40,7 +41,7 @@ describe('trivar correct on an installation file', () => {
     expect(r.stdout).toMatch(/correction equipment on .* \(the main board\)/);
     expect(r.stdout).toContain('Arrangements compared');
     for (const line of r.stdout.split('\n')) expect(line.length, line).toBeLessThanOrEqual(100);
-  });
+  }, 180_000);
 
   it('says where loads leave or re-enter the voltage band', () => {
     const text = [

@@ -59,6 +59,14 @@ describe('README', () => {
     expect(paragraphs.length).toBeGreaterThanOrEqual(3);
     for (const p of paragraphs) expect(output).toContain(p);
   });
+  it('installation harmonic check excerpt: each of its paragraphs is in `trivar correct examples/ferrybank-joinery.yaml --board "Machine shop" --arrangement delta-bank`', () => {
+    const block = readme.split('<!-- installation-correct-harmonics-excerpt:start -->')[1]!.split('<!-- installation-correct-harmonics-excerpt:end -->')[0]!;
+    const shown = block.replace(/^\s*```text\n/, '').replace(/```\s*$/, '').trimEnd();
+    const output = runTrivar(['correct', 'examples/ferrybank-joinery.yaml', '--board', 'Machine shop', '--arrangement', 'delta-bank']).stdout;
+    const paragraphs = shown.split('\n\n');
+    expect(paragraphs.length).toBeGreaterThanOrEqual(2);
+    for (const p of paragraphs) expect(output).toContain(p);
+  }, 120_000);
   it('detuned correction output block matches `trivar correct examples/quayside-print-works.yaml`', () => {
     const block = readme.split('<!-- correct-detuned-output:start -->')[1]!.split('<!-- correct-detuned-output:end -->')[0]!;
     const shown = block.replace(/^\s*```text\n/, '').replace(/```\s*$/, '');

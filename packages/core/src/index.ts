@@ -183,8 +183,8 @@ export type { HarmonicsOptions } from './harmonics/studyHarmonics.js';
 export { studyBoardHarmonics, analyseHarmonics, solveHarmonicOrders, withSteps } from './harmonics/studyHarmonics.js';
 export { studyHarmonics } from './boardFile/studyHarmonics.js';
 export { studyInstallationHarmonics } from './boardFile/studyInstallationHarmonics.js';
-export type { HarmonicsInstallationSpec, InstallationHarmonicModel } from './harmonics/studyInstallationHarmonics.js';
-export { studyInstallationHarmonicsSpec, resolveInstallationHarmonics } from './harmonics/studyInstallationHarmonics.js';
+export type { HarmonicsInstallationSpec, InstallationHarmonicModel, InstallationHarmonicsOptions, PlacedBank } from './harmonics/studyInstallationHarmonics.js';
+export { studyInstallationHarmonicsSpec, resolveInstallationHarmonics, analyseInstallationHarmonics } from './harmonics/studyInstallationHarmonics.js';
 export { solveInstallationAtOrder, installationAtOrder } from './harmonics/installationAtOrder.js';
 export { createInstallationScanEvaluator } from './harmonics/scanEvaluator.js';
 export type { FixedInstallationInput } from './network/solveFixedInstallation.js';
@@ -204,7 +204,9 @@ export { solveFixedNetwork } from './network/solveFixedNetwork.js';
 export type { NodalMatrix } from './network/terminalImpedance.js';
 export type { CorrectionVariant, CorrectionHarmonics, HarmonicCorrectionReport, ArrangementHarmonics, HarmonicComparison } from './harmonics/correctWithHarmonics.js';
 export { correctWithHarmonics, compareWithHarmonics, bankOfReport } from './harmonics/correctWithHarmonics.js';
-export { boardHasHarmonicData } from './harmonics/boardHasHarmonicData.js';
+export type { InstallationHarmonicCorrection, InstallationHarmonicComparison, ResonanceWithoutBank } from './harmonics/correctInstallationWithHarmonics.js';
+export { correctInstallationWithHarmonics, compareInstallationWithHarmonics } from './harmonics/correctInstallationWithHarmonics.js';
+export { boardHasHarmonicData, installationHasHarmonicData } from './harmonics/boardHasHarmonicData.js';
 
 // Rebalancing (which circuits to move to which phase)
 export type { RebalanceSpec, AimSpec, AimFigure, LoadConditionSpec, PinSpec } from './rebalance/rebalanceSpec.js';

@@ -1,5 +1,5 @@
 /** `trivar correct`: size, choose and verify power-factor correction for a board. */
-import { boardOfInstallation, meteringPointIssues, boardHasHarmonicData, compareCorrections, compareInstallationCorrections, correctBoard, correctInstallation, InputError, installationBoardIndex, isInstallationInput, normaliseBoard, normaliseInstallation, readPlainBoardText, readWellFormedBoard, readWellFormedCorrectionBoard, type CorrectionComparison, type CorrectionReport } from '@trivar/core';
+import { boardOfInstallation, meteringPointIssues, boardHasHarmonicData, installationHasHarmonicData, compareCorrections, compareInstallationCorrections, correctBoard, correctInstallation, InputError, installationBoardIndex, isInstallationInput, normaliseBoard, normaliseInstallation, readPlainBoardText, readWellFormedBoard, readWellFormedCorrectionBoard, type CorrectionComparison, type CorrectionReport } from '@trivar/core';
 import type { CliIo } from '../io.js';
 import { writeResult } from '../writeResult.js';
 import { renderCorrectionReport } from '../format/correctionReport.js';
@@ -54,7 +54,13 @@ async function runCorrectInstallation(input: unknown, options: CorrectCommandOpt
   const issues = meteringPointIssues(equipmentBoard, options.measuredAt, '--measured-at');
   if (issues.length) throw new InputError(issues, 'the options do not fit the installation');
   assertOptionsFit(fromFile as Record<string, unknown>, options, equipmentBoard);
+  // An installation file with harmonic data (spectra, a harmonics: section) gets the harmonic check
+  // of the bank on its board, with detuned variants beside the plain one, as a board file does.
+  const harmonic = installationHasHarmonicData(spec) ? await import('./correctWithHarmonicData.js') : null;
+  // Its harmonics section is checked before the study, so an error there is named at its own path.
+  harmonic?.checkHarmonicsSection(spec);
   try {
+    if (harmonic) return harmonic.writeInstallationWithHarmonics(spec, installation, study, placement, options.json, io);
     if (study.arrangement === undefined) {
       const compared = compareInstallationCorrections(installation, study, placement);
       writeResult(io, compared, options.json, renderInstallationComparison);

@@ -3,12 +3,27 @@
  * detuned variants. Its own module, imported by correct.ts only for such files, so a plain
  * correction does not load the harmonic study.
  */
-import { compareWithHarmonics, correctWithHarmonics, type Board, type BoardSpec, type HarmonicComparison, type HarmonicCorrectionReport } from '@trivar/core';
+import {
+  compareInstallationWithHarmonics,
+  compareWithHarmonics,
+  correctInstallationWithHarmonics,
+  correctWithHarmonics,
+  resolveInstallationHarmonics,
+  type Board,
+  type BoardSpec,
+  type CorrectInstallationOptions,
+  type HarmonicComparison,
+  type HarmonicCorrectionReport,
+  type HarmonicsInstallationSpec,
+  type Installation,
+} from '@trivar/core';
 import type { CliIo } from '../io.js';
+import type { CorrectOutcome } from './correct.js';
 import { writeResult } from '../writeResult.js';
 import { renderCorrectionReport } from '../format/correctionReport.js';
 import { renderComparisonHarmonics, renderCorrectionHarmonics } from '../format/correctionHarmonicsReport.js';
 import { comparedSystem, renderComparisonReport, tableNames } from '../format/comparisonReport.js';
+import { renderInstallationComparisonWithHarmonics, renderInstallationCorrectionWithHarmonics } from '../format/installationCorrectionReport.js';
 
 /** Every arrangement compared, each with its harmonic check; writes the result. */
 export function writeComparisonWithHarmonics(spec: BoardSpec, board: Board, study: Record<string, unknown>, json: boolean | undefined, io: CliIo): HarmonicComparison {
@@ -22,4 +37,31 @@ export function writeCorrectionWithHarmonics(spec: BoardSpec, board: Board, stud
   const checked = correctWithHarmonics(spec, board, study);
   writeResult(io, checked, json, (r: HarmonicCorrectionReport) => renderCorrectionReport(r) + renderCorrectionHarmonics(r.harmonics));
   return checked;
+}
+
+/** Throws the installation file's harmonics-section errors (a bank on an unknown board…) at their paths. */
+export function checkHarmonicsSection(spec: HarmonicsInstallationSpec): void {
+  resolveInstallationHarmonics(spec);
+}
+
+/**
+ * An installation file: the bank on its board with its harmonic check — the arrangement the study names,
+ * or every arrangement compared; writes the result.
+ */
+export function writeInstallationWithHarmonics(
+  spec: HarmonicsInstallationSpec,
+  installation: Installation,
+  study: Record<string, unknown>,
+  placement: CorrectInstallationOptions,
+  json: boolean | undefined,
+  io: CliIo,
+): CorrectOutcome {
+  if (study.arrangement === undefined) {
+    const compared = compareInstallationWithHarmonics(spec, installation, study, placement);
+    writeResult(io, compared, json, renderInstallationComparisonWithHarmonics);
+    return { kind: 'comparison', comparison: compared.comparison };
+  }
+  const corrected = correctInstallationWithHarmonics(spec, installation, study, placement);
+  writeResult(io, corrected, json, renderInstallationCorrectionWithHarmonics);
+  return { kind: 'single', report: corrected.report };
 }

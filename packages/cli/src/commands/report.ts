@@ -10,6 +10,9 @@ import {
   compareWithHarmonics,
   correctWithHarmonics,
   compareInstallationCorrections,
+  compareInstallationWithHarmonics,
+  correctInstallationWithHarmonics,
+  installationHasHarmonicData,
   correctBoard,
   correctInstallation,
   InputError,
@@ -152,16 +155,18 @@ function boardCorrectionOf(spec: BoardSpec, board: Board, section: NonNullable<B
 
 /**
  * The installation file's correction study on the board it names (default the main board): the
- * arrangement it names, or (none named) every arrangement compared and the recommended one in full.
+ * arrangement it names, or (none named) every arrangement compared and the recommended one in full —
+ * with harmonic data, each arrangement as the variant its harmonic check chooses, as `trivar correct` gives them.
  */
-function installationCorrectionOf(installation: Installation, section: NonNullable<InstallationSpec['correction']>) {
+function installationCorrectionOf(spec: InstallationSpec, installation: Installation, section: NonNullable<InstallationSpec['correction']>) {
   const { board, ...study } = section;
   const placement = board === undefined ? {} : { board };
+  const harmonic = installationHasHarmonicData(spec);
   if (study.arrangement) {
-    const c = correctInstallation(installation, study, placement);
+    const c = harmonic ? correctInstallationWithHarmonics(spec, installation, study, placement) : correctInstallation(installation, study, placement);
     return { correction: { board: c.board, report: c.report, effect: c.effect }, correctionComparison: null };
   }
-  const c = compareInstallationCorrections(installation, study, placement);
+  const c = harmonic ? compareInstallationWithHarmonics(spec, installation, study, placement) : compareInstallationCorrections(installation, study, placement);
   const chosen = c.comparison.outcomes.find((o) => o.arrangement === c.comparison.recommended)?.report;
   return {
     correction: chosen && c.effect ? { board: c.board, report: chosen, effect: c.effect } : null,
@@ -178,7 +183,7 @@ async function installationDocument(raw: unknown, figures: unknown, options: Rep
   const result = solveInstallationModel(installation);
   // As for a board: a collapse is stated and the report written, without the studies that refuse that state.
   const viable = collapseOf(result) === null;
-  const { correction, correctionComparison } = viable && options.correction !== false && spec.correction ? installationCorrectionOf(installation, spec.correction) : NO_CORRECTION;
+  const { correction, correctionComparison } = viable && options.correction !== false && spec.correction ? installationCorrectionOf(spec, installation, spec.correction) : NO_CORRECTION;
   const wantsHarmonics = spec.harmonics !== undefined || spec.boards.some((b) => b.loads.some((l) => l.spectrum !== undefined));
   const harmonics = viable && options.harmonics !== false && wantsHarmonics ? studyInstallationHarmonics(raw) : null;
   const studySections = options.profileData ? await installationProfileReportSections(spec, installation, options, io, result.boards[0]!.result.conventions.phaseNames) : [];

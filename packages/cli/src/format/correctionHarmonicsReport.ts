@@ -1,9 +1,16 @@
 /** The harmonic comparison of plain and detuned banks, appended to `trivar correct`'s report. */
-import type { Arrangement, CorrectionHarmonics, HarmonicComparison } from '@trivar/core';
+import type { Arrangement, CorrectionHarmonics, CorrectionVariant, HarmonicComparison } from '@trivar/core';
 import { fixed, renderTable, section } from './textTable.js';
 import { wrapText } from './wrapText.js';
 
-export function renderCorrectionHarmonics(h: CorrectionHarmonics): string {
+/** How the section ends: where the details are. @defaultValue a board file's */
+const BOARD_FILE_DETAILS = 'details: trivar harmonics on the board file; --json carries the chosen bank’s scan and duty (harmonics.check)';
+
+/** Orders near a peak only with the other banks switched (an installation's other banks), as a cell. */
+const switchedCell = (v: CorrectionVariant) => (v.resonantOrdersOtherBanksSwitched?.length ? v.resonantOrdersOtherBanksSwitched.join(' ') : '-');
+
+export function renderCorrectionHarmonics(h: CorrectionHarmonics<unknown>, details = BOARD_FILE_DETAILS): string {
+  const switched = h.variants.some((v) => v.resonantOrdersOtherBanksSwitched !== undefined);
   const rows = h.variants.map((v) => [
     `${v.name}${v.name === h.chosen ? ' *' : ''}`,
     v.tuningOrder === null ? '-' : fixed(v.tuningOrder, 2),
@@ -13,6 +20,7 @@ export function renderCorrectionHarmonics(h: CorrectionHarmonics): string {
     fixed(v.deliveredKvar, 1),
     v.lowestResonanceOrder === null ? '-' : fixed(v.lowestResonanceOrder, 2),
     v.resonantOrders.length ? v.resonantOrders.join(' ') : '-',
+    ...(switched ? [switchedCell(v)] : []),
     v.worstDutyRatio === null ? '-' : fixed(v.worstDutyRatio, 2),
     v.passes ? 'passes' : 'FAILS',
   ]);
@@ -26,6 +34,7 @@ export function renderCorrectionHarmonics(h: CorrectionHarmonics): string {
       { header: 'kvar' },
       { header: 'peak h' },
       { header: 'near h', align: 'left' },
+      ...(switched ? [{ header: 'sw. h', align: 'left' as const }] : []),
       { header: 'duty' },
       { header: 'check', align: 'left' },
     ],
@@ -45,19 +54,24 @@ export function renderCorrectionHarmonics(h: CorrectionHarmonics): string {
     : [];
   return [
     section('Harmonic check: plain and detuned banks'),
-    wrapText('* = the bank above; kvar = delivered; peak h = lowest resonance of any step combination; duty = worst / limit', '  ', '    '),
+    wrapText(
+      `* = the bank above; kvar = delivered; peak h = lowest resonance of any step combination${switched ? ' with some of the bank on, every other bank on; sw. h = orders near a peak only with the other banks switched; orders near one without the new bank are not counted' : ''}; duty = worst / limit`,
+      '  ',
+      '    ',
+    ),
     table,
     wrapText(h.summary, '  ', '    '),
     ...reactors,
     ...reasons,
     wrapText(`basis: ${h.basis}`, '  ', '    '),
-    wrapText('details: trivar harmonics on the board file; --json carries the chosen bank’s scan and duty (harmonics.check)', '  ', '    '),
+    wrapText(details, '  ', '    '),
     '',
   ].join('\n');
 }
 
 /** Every arrangement's plain and detuned variants in one table (comparison mode). */
 export function renderComparisonHarmonics(h: HarmonicComparison['harmonics'], names: Readonly<Record<Arrangement, string>>): string {
+  const switched = h.arrangements.some((a) => a.variants.some((v) => v.resonantOrdersOtherBanksSwitched !== undefined));
   const rows = h.arrangements.flatMap((a) =>
     a.variants.map((v, k) => [
       k === 0 ? (names[a.arrangement] ?? a.arrangement) : '',
@@ -67,13 +81,20 @@ export function renderComparisonHarmonics(h: HarmonicComparison['harmonics'], na
       fixed(v.deliveredKvar, 1),
       v.lowestResonanceOrder === null ? '-' : fixed(v.lowestResonanceOrder, 2),
       v.resonantOrders.length ? v.resonantOrders.join(' ') : '-',
+      ...(switched ? [switchedCell(v)] : []),
       v.worstDutyRatio === null ? '-' : fixed(v.worstDutyRatio, 2),
       v.passes ? 'passes' : 'FAILS',
     ]),
   );
+  // Why a variant fails, with its figures, where the other banks decide it (a board file's table says it all).
+  const reasons = switched ? h.arrangements.flatMap((a) => a.variants.filter((v) => !v.passes).map((v) => wrapText(`${names[a.arrangement] ?? a.arrangement}, ${v.name}: ${v.reasons.join('; ')}`, '  ', '    '))) : [];
   return [
     section('Harmonic check of every arrangement: plain and detuned banks'),
-    wrapText('* = the variant each arrangement is shown as above; kvar = delivered; peak h = lowest resonance; duty = worst / limit', '  ', '    '),
+    wrapText(
+      `* = the variant each arrangement is shown as above; kvar = delivered; peak h = lowest resonance${switched ? ' with some of the bank on, every other bank on; sw. h = orders near a peak only with the other banks switched; orders near one without the new bank are not counted' : ''}; duty = worst / limit`,
+      '  ',
+      '    ',
+    ),
     renderTable(
       [
         { header: 'arrangement', align: 'left' },
@@ -83,11 +104,13 @@ export function renderComparisonHarmonics(h: HarmonicComparison['harmonics'], na
         { header: 'kvar' },
         { header: 'peak h' },
         { header: 'near h', align: 'left' },
+        ...(switched ? [{ header: 'sw. h', align: 'left' as const }] : []),
         { header: 'duty' },
         { header: 'check', align: 'left' },
       ],
       rows,
     ),
+    ...reasons,
     wrapText(`rule: ${h.rule}`, '  ', '    '),
     '',
   ].join('\n');

@@ -2,18 +2,29 @@
  * `trivar correct` on an installation: where the equipment goes, the study on that board, then what the
  * equipment does to every board, feeder and the supply (fits 100 columns).
  */
-import { arrangementNames, meteringPointWords, type BeforeAfter, type InstallationComparison, type InstallationCorrection, type InstallationEffect } from '@trivar/core';
+import {
+  arrangementNames,
+  meteringPointWords,
+  type BeforeAfter,
+  type InstallationComparison,
+  type InstallationCorrection,
+  type InstallationEffect,
+  type InstallationHarmonicComparison,
+  type InstallationHarmonicCorrection,
+  type ResonanceWithoutBank,
+} from '@trivar/core';
+import { renderComparisonHarmonics, renderCorrectionHarmonics } from './correctionHarmonicsReport.js';
 import { fixed, renderTableWithin, section } from './textTable.js';
 import { treeName } from './boardTree.js';
 import { renderCorrectionReport } from './correctionReport.js';
-import { comparedSystem, renderComparisonReport } from './comparisonReport.js';
+import { comparedSystem, renderComparisonReport, tableNames } from './comparisonReport.js';
 import { REPORT_WIDTH, wrapText } from './wrapText.js';
 
 const note = (text: string) => `${wrapText(text, '  (', '   ', REPORT_WIDTH - 1)})`;
 const change = (x: BeforeAfter | null, digits: number) => (x === null ? '' : `${fixed(x.before, digits)} → ${fixed(x.after, digits)}`);
 /** The same without spaces, for table cells (keeps the tables inside 100 columns). */
 const cell = (x: BeforeAfter | null, digits: number) => (x === null ? '' : `${fixed(x.before, digits)}→${fixed(x.after, digits)}`);
-function placeLines(c: InstallationCorrection | InstallationComparison): string {
+function placeLines(c: Omit<InstallationCorrection | InstallationComparison, 'report' | 'comparison'>): string {
   const where = c.boardIndex === 0 ? `${c.board} (the main board)` : c.board;
   const judged = c.measuredAt === undefined ? `the incomer of ${c.board}` : meteringPointWords(c.measuredAt);
   return [
@@ -109,12 +120,42 @@ export function renderInstallationCorrection(c: InstallationCorrection): string 
   return `${placeLines(c)}\n${renderCorrectionReport(c.report)}${effect}`;
 }
 
-export function renderInstallationComparison(c: InstallationComparison): string {
+/** The recommended arrangement's effect on every board; nothing when it adds nothing (every "x→x"). */
+function recommendedEffect(c: InstallationComparison): string {
   const recommended = c.comparison.outcomes.find((o) => o.arrangement === c.comparison.recommended)?.report;
   const system = comparedSystem(c.comparison);
-  const effect =
-    c.effect && recommended && recommended.status !== 'already-meets-target'
-      ? `\nThe recommended ${arrangementNames(system)[recommended.arrangement]} across the installation\n${renderInstallationEffect(c.effect)}`
-      : '';
-  return `${placeLines(c)}\n${renderComparisonReport(c.comparison)}${effect}`;
+  return c.effect && recommended && recommended.status !== 'already-meets-target'
+    ? `\nThe recommended ${arrangementNames(system)[recommended.arrangement]} across the installation\n${renderInstallationEffect(c.effect)}`
+    : '';
+}
+
+export function renderInstallationComparison(c: InstallationComparison): string {
+  return `${placeLines(c)}\n${renderComparisonReport(c.comparison)}${recommendedEffect(c)}`;
+}
+
+const INSTALLATION_DETAILS =
+  'details: --json carries the chosen bank’s study on the whole installation (report.harmonics.check); trivar harmonics on the installation file studies the banks its harmonics.banks lists';
+
+/** What the installation resonates near with none of the new bank in service: the other banks' doing, not counted against it. */
+function withoutBankLines(board: string, w: ResonanceWithoutBank | null): string {
+  if (!w || (w.withOtherBanksOn.length === 0 && w.withOtherBanksSwitched.length === 0)) return '';
+  const parts = [
+    ...(w.withOtherBanksOn.length ? [`near order ${w.withOtherBanksOn.join(', ')} with every other bank on`] : []),
+    ...w.withOtherBanksSwitched.map((s) => `near order ${s.order} (h ${fixed(s.peakOrder, 2)}) with ${s.otherBanks}`),
+  ];
+  return `${wrapText(
+    `! with none of the new bank in service, the installation seen from ${board} already resonates ${parts.join('; ')}: the other banks' matter (trivar harmonics studies them), not counted against this bank`,
+    '  ',
+    '    ',
+  )}\n`;
+}
+
+export function renderInstallationCorrectionWithHarmonics(c: InstallationHarmonicCorrection): string {
+  return `${placeLines(c)}\n${renderCorrectionReport(c.report)}${renderCorrectionHarmonics(c.report.harmonics, INSTALLATION_DETAILS)}${withoutBankLines(c.board, c.resonanceWithoutBank)}${c.report.status === 'already-meets-target' ? '' : renderInstallationEffect(c.effect)}`;
+}
+
+export function renderInstallationComparisonWithHarmonics(c: InstallationHarmonicComparison): string {
+  const effect = recommendedEffect(c);
+  const harmonics = renderComparisonHarmonics(c.comparison.harmonics, tableNames(comparedSystem(c.comparison)));
+  return `${placeLines(c)}\n${renderComparisonReport(c.comparison)}${harmonics}${withoutBankLines(c.board, c.resonanceWithoutBank)}${effect}`;
 }

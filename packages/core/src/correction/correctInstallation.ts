@@ -58,9 +58,10 @@ export function installationBoardIndex(installation: Installation, name: string 
 }
 
 /** The metering point of a study, where it is not the equipment's board. */
-const measuredAt = (report: CorrectionReport) => (report.verification.metering ? { measuredAt: report.verification.metering.point } : {});
+export const measuredAt = (report: CorrectionReport): { measuredAt?: string } => (report.verification.metering ? { measuredAt: report.verification.metering.point } : {});
 
-function place(installation: Installation, options: CorrectInstallationOptions | undefined) {
+/** The board the equipment goes on, with its place, and how the result names it. */
+export function placeCorrection(installation: Installation, options: CorrectInstallationOptions | undefined) {
   const boardIndex = installationBoardIndex(installation, options?.board);
   const board = boardOfInstallation(installation, boardIndex);
   return { board, placed: { installation: installation.name, board: board.name, boardIndex } };
@@ -79,7 +80,7 @@ function place(installation: Installation, options: CorrectInstallationOptions |
  * c.effect.boards[0].vectorPf.after // PF at the main incomer with the bank on Floor 1
  */
 export function correctInstallation(installation: Installation, spec: unknown, options?: CorrectInstallationOptions): InstallationCorrection {
-  const { board, placed } = place(installation, options);
+  const { board, placed } = placeCorrection(installation, options);
   const report = correctBoard(board, spec);
   return { ...placed, ...measuredAt(report), report, effect: installationEffect(board, report.verification.equipment) };
 }
@@ -91,7 +92,7 @@ export function correctInstallation(installation: Installation, spec: unknown, o
  * @throws {NumericalError} if a solve fails, or (reason `collapsed`) when the supply cannot carry the loads
  */
 export function compareInstallationCorrections(installation: Installation, spec: unknown, options?: CorrectInstallationOptions): InstallationComparison {
-  const { board, placed } = place(installation, options);
+  const { board, placed } = placeCorrection(installation, options);
   const comparison = compareCorrections(board, spec);
   const chosen = comparison.outcomes.find((o) => o.arrangement === comparison.recommended)?.report;
   const studied = comparison.outcomes.find((o) => o.report !== null)?.report;

@@ -8,3 +8,8 @@ import type { HarmonicsBoardSpec } from './harmonicsSpec.js';
 export function boardHasHarmonicData(spec: HarmonicsBoardSpec): boolean {
   return spec.harmonics !== undefined || spec.loads.some((l) => l.spectrum !== undefined && l.spectrum !== 'linear');
 }
+
+/** True when an installation file gives the harmonic study something to work on (a `harmonics:` section, or a load with a spectrum on any board). */
+export function installationHasHarmonicData(spec: { readonly harmonics?: unknown; readonly boards: readonly { readonly loads: HarmonicsBoardSpec['loads'] }[] }): boolean {
+  return spec.harmonics !== undefined || spec.boards.some((b) => b.loads.some((l) => l.spectrum !== undefined && l.spectrum !== 'linear'));
+}

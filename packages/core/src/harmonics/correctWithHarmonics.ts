@@ -30,7 +30,7 @@ import type { HarmonicsBoardSpec } from './harmonicsSpec.js';
 import { analyseHarmonics } from './studyHarmonics.js';
 import { DETUNING_FACTORS_PERCENT, capacitorVoltage, tuningOrder } from './detuning.js';
 import { dutyRatio } from './capacitorDuty.js';
-import type { HarmonicsReport } from './harmonicsResult.js';
+import type { CapacitorDuty, HarmonicsReport } from './harmonicsResult.js';
 
 const capitalised = (text: string) => text.charAt(0).toUpperCase() + text.slice(1);
 
@@ -57,6 +57,11 @@ export interface CorrectionVariant {
   readonly lowestResonanceOrder: number | null;
   /** Orders present on the board that some step combination resonates within ±10 % of. */
   readonly resonantOrders: readonly number[];
+  /**
+   * On an installation with other banks: orders some step combination resonates within ±10 % of only
+   * with the other banks switched (absent on a board file).
+   */
+  readonly resonantOrdersOtherBanksSwitched?: readonly number[];
   /** Worst capacitor duty over every state, as a fraction of its limit (≤ 1 is within). */
   readonly worstDutyRatio: number | null;
   readonly dutyOk: boolean;
@@ -67,25 +72,49 @@ export interface CorrectionVariant {
 }
 
 /** A variant with the reports it came from (kept out of the result: the chosen one is the result). */
-interface VariantRun {
+interface VariantRun<Check> {
   readonly summary: CorrectionVariant;
   readonly report: CorrectionReport;
-  readonly harmonics: HarmonicsReport | null;
+  readonly harmonics: Check | null;
+  /** Largest 3rd-harmonic current of a line at the bank's board, % of its fundamental. */
+  readonly thirdPercent: number;
 }
 
-export interface CorrectionHarmonics {
+/** What the harmonic check of one bank found, whatever the network it was checked on. */
+export interface BankCheck<Check> {
+  /** The study of the bank (kept for the chosen variant); null when nothing is built. */
+  readonly check: Check | null;
+  /** Resonance peaks (orders) of the step combinations judged (on an installation, those with some of the bank in service). */
+  readonly peakOrders: readonly number[];
+  /** Orders present that such a combination resonates within ±10 % of. */
+  readonly resonantOrders: readonly number[];
+  /** The same only with other banks switched (an installation's other banks); absent without them. */
+  readonly resonantOrdersOtherBanksSwitched?: readonly { readonly order: number; readonly words: string }[];
+  readonly duty: CapacitorDuty | null;
+  /** Largest 3rd-harmonic current of a line at the bank's board, % of its fundamental. */
+  readonly thirdPercent: number;
+  /** The resonant orders in words with their figures (`7 (steps 1+2: h 7.04)`), where the check words them so. */
+  readonly resonanceWords?: string;
+  /** The worst duty in words with its figures, where the check words it so. */
+  readonly dutyWords?: string;
+}
+
+/** Checks the bank of a correction report (its steps with their detuning factor) on the harmonics. */
+export type BankChecker<Check> = (report: CorrectionReport) => BankCheck<Check>;
+
+export interface CorrectionHarmonics<Check = HarmonicsReport> {
   /** The choice in words. */
   readonly summary: string;
   /** Name of the chosen variant; null when none passes. */
   readonly chosen: string | null;
   readonly variants: readonly CorrectionVariant[];
   /** The harmonic study of the bank in the report (scan curves included, for plotting); null when nothing is built. */
-  readonly check: HarmonicsReport | null;
+  readonly check: Check | null;
   readonly basis: string;
 }
 
 /** A correction report with the harmonic comparison of plain and detuned variants. */
-export type HarmonicCorrectionReport = CorrectionReport & { readonly harmonics: CorrectionHarmonics };
+export type HarmonicCorrectionReport<Check = HarmonicsReport> = CorrectionReport & { readonly harmonics: CorrectionHarmonics<Check> };
 
 /** The catalogue a study uses, as plain unit specs (user's, or the practice's typical one at the board frequency). */
 function catalogueOf(board: Board, study: ReturnType<typeof parseCorrectionSpec>): CapacitorUnitSpec[] {
@@ -104,8 +133,8 @@ const equivalentUnit = (u: CapacitorUnitSpec, p: number): CapacitorUnitSpec => (
 
 /** The caution a correction report gives when it has not looked at harmonics; replaced once it has. */
 const HARMONICS_NOT_CHECKED = CORRECTION_CAUTIONS.find((c) => c.includes('does not check harmonics'));
-const HARMONICS_CHECKED =
-  'Adding capacitance moves the supply resonance down in frequency. The harmonic check below covers the spectra entered in the board file; measure the real spectrum (true-rms, per order) before installing.';
+const harmonicsChecked = (file: string) =>
+  `Adding capacitance moves the supply resonance down in frequency. The harmonic check below covers the spectra entered in the ${file}; measure the real spectrum (true-rms, per order) before installing.`;
 
 /**
  * Writes a variant's steps back in real units: rating, nameplate and
@@ -211,25 +240,41 @@ export function bankOfReport(board: Board, report: CorrectionReport): { board: B
  * The bank checked is the one the correction study chose, so its duty is judged at the ends of the
  * capacitance tolerance that study chose the units with (the `harmonics.bank` tolerance is the installed bank's).
  */
-function withStudyTolerance(model: HarmonicModel, report: CorrectionReport): HarmonicModel {
+export function withStudyTolerance(model: HarmonicModel, report: CorrectionReport): HarmonicModel {
   const tolerance = report.selection?.capacitanceTolerance;
   return tolerance ? { ...model, capacitanceTolerance: { minusPercent: tolerance.minusPercent, plusPercent: tolerance.plusPercent } } : model;
 }
 
-function variantOf(spec: HarmonicsBoardSpec, board: Board, report: CorrectionReport, name: string, percent: number): VariantRun {
+/** The harmonic check of a bank on a board file: the board with the bank, every step combination scanned, duty in every state. */
+export function boardBankChecker(spec: HarmonicsBoardSpec, board: Board): BankChecker<HarmonicsReport> {
+  return (report) => {
+    const bank = bankOfReport(board, report);
+    const harmonics = bank ? analyseHarmonics(bank.board, withStudyTolerance(resolveHarmonicModel(spec, bank.board, bank.model), report)) : null;
+    const duty = harmonics?.capacitorDuty ?? null;
+    return {
+      check: harmonics,
+      peakOrders: harmonics?.scan.combinations.flatMap((c) => c.peaks.map((pk) => pk.order)) ?? [],
+      resonantOrders: [...new Set(harmonics?.scan.combinations.flatMap((c) => c.nearOrders) ?? [])].sort((a, b) => a - b),
+      duty,
+      thirdPercent: Math.max(0, ...(harmonics?.lines.map((l) => l.current.orders.find((o) => o.order === 3)?.percentOfFundamental ?? 0) ?? [])),
+    };
+  };
+}
+
+function variantOf<Check>(checkBank: BankChecker<Check>, board: Board, report: CorrectionReport, name: string, percent: number): VariantRun<Check> {
   const p = percent / 100;
-  const bank = bankOfReport(board, report);
-  const harmonics = bank ? analyseHarmonics(bank.board, withStudyTolerance(resolveHarmonicModel(spec, bank.board, bank.model), report)) : null;
-  const peaks = harmonics?.scan.combinations.flatMap((c) => c.peaks.map((pk) => pk.order)) ?? [];
-  const resonantOrders = [...new Set(harmonics?.scan.combinations.flatMap((c) => c.nearOrders) ?? [])].sort((a, b) => a - b);
-  const duty = harmonics?.capacitorDuty ?? null;
+  const checked = checkBank(report);
+  const { peakOrders: peaks, resonantOrders, duty } = checked;
+  const switched = checked.resonantOrdersOtherBanksSwitched;
   const worstDutyRatio = duty ? dutyRatio(duty.worst.figures, duty.limits) : null;
   const met = report.status === 'meets-target' || report.status === 'meets-target-at-nominal-capacitance' || report.status === 'already-meets-target';
   const reasons = [
     ...(met ? [] : [`the correction study ends "${report.status}"`]),
-    ...(resonantOrders.length ? [`a step combination resonates with the supply within ±10 % of order ${resonantOrders.join(', ')}`] : []),
-    ...(duty && !duty.ok ? ['the capacitors exceed their duty limits in some state'] : []),
+    ...(resonantOrders.length ? [`a step combination resonates with the supply within ±10 % of order ${checked.resonanceWords ?? resonantOrders.join(', ')}`] : []),
+    ...(switched?.length ? [`with the other banks switched a step combination resonates within ±10 % of order ${switched.map((s) => `${s.order} (${s.words})`).join(', ')}`] : []),
+    ...(duty && !duty.ok ? [`the capacitors exceed their duty limits in some state${checked.dutyWords ? ` (${checked.dutyWords})` : ''}`] : []),
   ];
+  const bank = bankOfReport(board, report);
   const elementV = bank?.model.elementNominalV ?? board.nominalLineToLineV ?? board.nominalLineToNeutralV;
   const summary: CorrectionVariant = {
     name,
@@ -243,12 +288,13 @@ function variantOf(spec: HarmonicsBoardSpec, board: Board, report: CorrectionRep
     correctionStatus: report.status,
     lowestResonanceOrder: peaks.length ? Math.min(...peaks) : null,
     resonantOrders,
+    ...(switched ? { resonantOrdersOtherBanksSwitched: [...new Set(switched.map((s) => s.order))].sort((a, b) => a - b) } : {}),
     worstDutyRatio,
     dutyOk: duty?.ok ?? true,
     passes: reasons.length === 0,
     reasons,
   };
-  return { summary, report, harmonics };
+  return { summary, report, harmonics: checked.check, thirdPercent: checked.thirdPercent };
 }
 
 function reactorsOf(report: CorrectionReport, frequencyHz: number, p: number): CorrectionVariant['reactorsMilliHenry'] {
@@ -261,6 +307,14 @@ function reactorsOf(report: CorrectionReport, frequencyHz: number, p: number): C
 /** A third harmonic worth a 14 % reactor: above this share of the fundamental on some line (common practice, no source). */
 const SIGNIFICANT_THIRD = 0.1;
 
+/** How the check is worded for the kind of file it was made on. */
+export interface HarmonicCheckWording {
+  /** `board file`, `installation file`: where the spectra were entered. */
+  readonly file: string;
+  /** What the check adds to the basis (the network it was made on). */
+  readonly basis?: string;
+}
+
 /**
  * Runs the correction study with its harmonic check: the plain bank, and
  * detuned variants at 5.67, 7 and 14 % (or the one `harmonics.detuning`
@@ -271,23 +325,39 @@ const SIGNIFICANT_THIRD = 0.1;
  * @param study the correction study (as for `correctBoard`)
  */
 export function correctWithHarmonics(spec: HarmonicsBoardSpec, board: Board, study: unknown): HarmonicCorrectionReport {
-  const plain = variantOf(spec, board, correctBoard(board, study), 'plain', 0);
+  return correctWithBankCheck(board, study, spec.harmonics?.detuning, boardBankChecker(spec, board), { file: 'board file' });
+}
+
+/**
+ * The correction study with the harmonic check of its bank by `checkBank` (a board's, or the bank on a
+ * board of an installation): plain and detuned variants, one chosen.
+ * @param board the board the equipment is on (with its place in an installation where it has one)
+ * @param detuning the file's `harmonics.detuning`
+ */
+export function correctWithBankCheck<Check>(
+  board: Board,
+  study: unknown,
+  detuning: number | 'auto' | 'none' | undefined,
+  checkBank: BankChecker<Check>,
+  wording: HarmonicCheckWording,
+): HarmonicCorrectionReport<Check> {
+  const plain = variantOf(checkBank, board, correctBoard(board, study), 'plain', 0);
   const parsed = parseCorrectionSpec(study, board);
-  const setting = spec.harmonics?.detuning ?? 'auto';
+  const setting = detuning ?? 'auto';
   const factors: number[] = setting === 'none' ? [] : setting === 'auto' ? [...DETUNING_FACTORS_PERCENT] : [setting];
   const catalogue = catalogueOf(board, parsed);
   const detuned = factors.map((percent) => {
     const p = percent / 100;
     const variantStudy = { ...(study as Record<string, unknown>), catalogue: catalogue.map((u) => equivalentUnit(u, p)) };
-    return variantOf(spec, board, asDetuned(correctBoard(board, variantStudy), p, percent, plain.report.selection), `detuned ${percent} %`, percent);
+    return variantOf(checkBank, board, asDetuned(correctBoard(board, variantStudy), p, percent, plain.report.selection), `detuned ${percent} %`, percent);
   });
   const runs = [plain, ...detuned];
-  const third = plain.harmonics?.lines.some((l) => (l.current.orders.find((o) => o.order === 3)?.percentOfFundamental ?? 0) > 100 * SIGNIFICANT_THIRD) ?? false;
+  const third = plain.thirdPercent > 100 * SIGNIFICANT_THIRD;
   // Practice: 14 % where the 3rd matters, else 7 % (then 5.67 %), common practice [METHODS §5].
   const order = third ? [...detuned].sort((a, b) => b.summary.detuningPercent - a.summary.detuningPercent) : [...detuned].sort((a, b) => Math.abs(a.summary.detuningPercent - 7) - Math.abs(b.summary.detuningPercent - 7));
   const chosen = plain.summary.passes ? plain : (order.find((v) => v.summary.passes) ?? null);
   const shown = chosen ?? plain;
-  const why = (v: VariantRun) => v.summary.reasons.join('; ');
+  const why = (v: VariantRun<Check>) => v.summary.reasons.join('; ');
   const summary = chosen
     ? chosen === plain
       ? 'the plain bank passes the harmonic check: no detuning needed'
@@ -295,13 +365,13 @@ export function correctWithHarmonics(spec: HarmonicsBoardSpec, board: Board, stu
     : `no variant passes the harmonic check (${runs.map((v) => `${v.summary.name}: ${why(v)}`).join(' | ')}): a tuned filter or a specialist harmonic study is needed; the plain bank is shown`;
   return {
     ...shown.report,
-    cautions: shown.report.cautions.map((c) => (c === HARMONICS_NOT_CHECKED ? HARMONICS_CHECKED : c)),
+    cautions: shown.report.cautions.map((c) => (c === HARMONICS_NOT_CHECKED ? harmonicsChecked(wording.file) : c)),
     harmonics: {
       summary,
       chosen: chosen?.summary.name ?? null,
       variants: runs.map((v) => v.summary),
       check: shown.harmonics,
-      basis: 'each variant is sized for the same target with its effective fundamental output Q_r(U/U_r)²/(1 − p) and units rated for U/(1 − p) with the study’s voltage margin; every correction check is re-run, then the resonance scan and the capacitor duty of every step combination',
+      basis: `each variant is sized for the same target with its effective fundamental output Q_r(U/U_r)²/(1 − p) and units rated for U/(1 − p) with the study’s voltage margin; every correction check is re-run, then the resonance scan and the capacitor duty of every step combination${wording.basis ? `; ${wording.basis}` : ''}`,
     },
   };
 }
@@ -332,11 +402,19 @@ export type HarmonicComparison = CorrectionComparison & {
  * chosen variant passes, on the figures of those variants as shown.
  */
 export function compareWithHarmonics(spec: HarmonicsBoardSpec, board: Board, study: unknown): HarmonicComparison {
+  return compareWithBankCheck(board, study, (arrangementStudy) => correctWithHarmonics(spec, board, arrangementStudy));
+}
+
+/**
+ * The arrangement comparison with each arrangement's study run by `correctChecked` (the correction
+ * study with the harmonic check of its bank, `correctWithBankCheck`).
+ */
+export function compareWithBankCheck<Check>(board: Board, study: unknown, correctChecked: (arrangementStudy: unknown) => HarmonicCorrectionReport<Check>): HarmonicComparison {
   const comparison = compareCorrections(board, study);
   const parsed = parseCorrectionSpec(study, board);
   const checked = comparison.outcomes.map((o) => {
     if (!o.report) return { outcome: o, harmonics: null };
-    const report = correctWithHarmonics(spec, board, specFor(parsed, o.arrangement));
+    const report = correctChecked(specFor(parsed, o.arrangement));
     const { harmonics, ...plainReport } = report;
     return { outcome: { ...o, report: plainReport, figures: figuresOf(plainReport) }, harmonics };
   });

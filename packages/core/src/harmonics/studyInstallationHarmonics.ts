@@ -148,9 +148,10 @@ function depthOf(installation: Installation, b: number): number {
   return depth;
 }
 
-function installationAssumptions(main: Board, models: readonly HarmonicModel[], banks: readonly number[], scans: readonly BoardScan[]): string[] {
-  // The single-board wording, with every board's load forms and any bank.
-  const merged: HarmonicModel = { ...models[0]!, loads: models.flatMap((m) => m.loads), bank: models.find((m) => m.bank)?.bank ?? null };
+function installationAssumptions(main: Board, models: readonly HarmonicModel[], banks: readonly number[], scans: readonly BoardScan[], scannedBoard?: number): string[] {
+  // The single-board wording, with every board's load forms and any bank (the scanned one's tolerance where one board is asked for).
+  const base = scannedBoard === undefined ? models[0]! : models[scannedBoard]!;
+  const merged: HarmonicModel = { ...base, loads: models.flatMap((m) => m.loads), bank: (scannedBoard === undefined ? null : base.bank) ?? models.find((m) => m.bank)?.bank ?? null };
   return [
     ...assumptions(main, merged, banks.length > 1),
     'sub-board feeders per conductor like the service feeder (line and neutral); each feeder neutral carries its boards’ zero-sequence (triplen) current back towards the source',
@@ -180,35 +181,51 @@ export interface InstallationHarmonicModel {
   readonly installation: Installation;
   /** One per board (0 = main board): how its loads behave at harmonic orders, its bank if it has one. */
   readonly models: readonly HarmonicModel[];
-  /** Per bank of `harmonics.banks`, its board number. */
+  /** Per bank of `harmonics.banks`, its board number; with a placed bank, every board that has a bank, ascending. */
   readonly bankBoards: readonly number[];
+}
+
+/** A bank placed on a board in place of the file's bank there (the bank a correction study designs). */
+export interface PlacedBank {
+  /** Board number (0 = main board). */
+  readonly board: number;
+  /** The board with the bank's parts added as loads, and its model; null when there is nothing to add. */
+  readonly add: (board: Board) => { board: Board; model: BankModel } | null;
 }
 
 /**
  * Normalises a validated installation file and adds its banks: the installation and
  * models the study solves (also what a check against another solver starts from).
+ * @param placed a bank that takes the place of the file's bank on its board (or is added where the file has none)
  * @throws {InputError} for a bank on an unknown board, two banks on one board, or a bank on a supply that is not three-phase
  */
-export function resolveInstallationHarmonics(spec: HarmonicsInstallationSpec): InstallationHarmonicModel {
+export function resolveInstallationHarmonics(spec: HarmonicsInstallationSpec, placed?: PlacedBank): InstallationHarmonicModel {
   const { installation: plain, boardNumber } = normaliseInstallation(spec);
   const section = spec.harmonics ?? {};
-  const bankBoards = checkBanks(section, plain);
+  const fileBankBoards = checkBanks(section, plain);
   const count = plain.subBoards.length + 1;
   let installation = plain;
   const bankModels: (BankModel | null)[] = new Array(count).fill(null);
   (section.banks ?? []).forEach((bank, i) => {
-    const b = bankBoards[i]!;
+    const b = fileBankBoards[i]!;
+    if (b === placed?.board) return;
     const added = addInstalledBank(boardOfInstallation(installation, b), bank);
     installation = withBoardLoads(installation, b, added.board.loads);
     bankModels[b] = added.model;
   });
+  const added = placed ? placed.add(boardOfInstallation(installation, placed.board)) : null;
+  if (placed && added) {
+    installation = withBoardLoads(installation, placed.board, added.board.loads);
+    bankModels[placed.board] = added.model;
+  }
   const loadSpecs: HarmonicLoadSpec[][] = new Array(count);
   spec.boards.forEach((board, i) => (loadSpecs[boardNumber[i]!] = board.loads));
   const { banks: bankSpecs, ...shared } = section;
   const models = Array.from({ length: count }, (_, b) => {
-    const bank = bankSpecs?.find((_, i) => bankBoards[i] === b);
+    const bank = b === placed?.board ? undefined : bankSpecs?.find((_, i) => fileBankBoards[i] === b);
     return resolveHarmonicModel({ loads: loadSpecs[b]!, harmonics: { ...shared, ...(bank ? { bank } : {}) } }, boardOfInstallation(installation, b), bankModels[b]!);
   });
+  const bankBoards = placed ? bankModels.flatMap((m, b) => (m ? [b] : [])) : fileBankBoards;
   return { installation, models, bankBoards };
 }
 
@@ -219,7 +236,19 @@ export function resolveInstallationHarmonics(spec: HarmonicsInstallationSpec): I
  * @throws {NumericalError} when a solve fails, or reason `collapsed` when a board's supply has collapsed
  */
 export function studyInstallationHarmonicsSpec(spec: HarmonicsInstallationSpec, options: HarmonicsOptions = {}): InstallationHarmonicsReport {
-  const { installation, models, bankBoards } = resolveInstallationHarmonics(spec);
+  return analyseInstallationHarmonics(resolveInstallationHarmonics(spec), options);
+}
+
+export interface InstallationHarmonicsOptions extends HarmonicsOptions {
+  /** The boards whose bank is scanned and checked for duty. @defaultValue every board with a bank (the main board when none has one) */
+  readonly scanBoards?: readonly number[];
+}
+
+/**
+ * Runs the harmonic study on a resolved installation (`resolveInstallationHarmonics`).
+ * @throws {NumericalError} when a solve fails, or reason `collapsed` when a board's supply has collapsed
+ */
+export function analyseInstallationHarmonics({ installation, models, bankBoards }: InstallationHarmonicModel, options: InstallationHarmonicsOptions = {}): InstallationHarmonicsReport {
   const { fundamental, solved } = solveOrders(installation, models, options.solve);
   // Harmonics of a collapsed state describe nothing that can exist (as the correction study refuses it).
   assertViableSolutions(fundamental.boards);
@@ -251,7 +280,7 @@ export function studyInstallationHarmonicsSpec(spec: HarmonicsInstallationSpec, 
   });
 
   // Scan from each bank's board; with no bank, from the main board as it is.
-  const scanned = bankBoards.length ? [...bankBoards].sort((a, b) => a - b) : [0];
+  const scanned = options.scanBoards ? [...options.scanBoards] : bankBoards.length ? [...bankBoards].sort((a, b) => a - b) : [0];
   const checked = checkedOrders(ordersOf(models));
   const scans = scanned.map((b): BoardScan => {
     const evaluator = createInstallationScanEvaluator(fundamental, models, b);
@@ -277,7 +306,7 @@ export function studyInstallationHarmonicsSpec(spec: HarmonicsInstallationSpec, 
     boards,
     tdd,
     scans,
-    assumptions: installationAssumptions(installation.main, models, bankBoards, scans),
+    assumptions: installationAssumptions(installation.main, models, bankBoards, scans, options.scanBoards?.[0]),
     warnings,
     cautions: harmonicsCautions(regionWords(conventionsOf(main).region, main.system).groundWord),
   };
