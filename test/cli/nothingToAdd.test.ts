@@ -22,6 +22,9 @@ describe('nothing to add', () => {
     const json = JSON.parse(runTrivar(['correct', CABIN, '--json']).stdout);
     const report = json.outcomes[0].report;
     expect(report.status).toBe('already-meets-target');
+    // The study itself gives only the caution that holds without equipment: JSON and text agree.
+    expect(report.cautions).toHaveLength(1);
+    expect(report.cautions[0]).toMatch(/^These figures come from the model you entered/);
     for (const line of report.verification.lines) {
       const row = r.stdout.split('\n').find((l) => l.startsWith(`  ${line.phase}  `))!;
       expect(row.trim().split(/ {2,}/).at(-1)).toBe(`${line.pf.before.toFixed(3)} lag`);

@@ -303,8 +303,7 @@ function lineTableNow(v: Pick<CorrectionVerification, 'lines'>, label: PhaseLabe
 
 /**
  * The report of a board that already meets the target: the verdict and the figures it rests on.
- * No sizing, bank or before → after tables (every one would read zero or "x → x"), and of the
- * cautions only those that hold without equipment (the capacitor ones are for a bank being installed).
+ * No sizing, bank or before → after tables (every one would read zero or "x → x").
  * `studied` names what was studied: one arrangement, or every one compared.
  */
 export function renderNothingToAdd(r: CorrectionReport, studied: string): string {
@@ -313,14 +312,15 @@ export function renderNothingToAdd(r: CorrectionReport, studied: string): string
   const pf = v.powerFactor;
   // A board whose lines carry nothing has no power factor to show (its PF figures are placeholders).
   const idle = v.lines.every((l) => l.pf.before === null);
-  const board = [
-    idle ? 'no line current, so no power factor' : null,
-    !idle && pf.effective ? `PF effective (IEEE 1459) ${fixed(pf.effective.before, 3)}` : null,
-    idle ? null : `PF vector ${fixed(pf.vector.before, 3)}`,
-    idle ? null : `PF arithmetic ${fixed(pf.arithmetic.before, 3)}`,
-    !idle && pf.positiveSequence ? `PF positive sequence ${fixed(pf.positiveSequence.before, 3)}` : null,
-    v.neutralCurrentA ? `neutral ${fixed(v.neutralCurrentA.before, 1)} A` : null,
-  ].filter((x) => x !== null);
+  const board = idle
+    ? ['no line current, so no power factor']
+    : [
+        ...(pf.effective ? [`PF effective (IEEE 1459) ${fixed(pf.effective.before, 3)}`] : []),
+        `PF vector ${fixed(pf.vector.before, 3)}`,
+        `PF arithmetic ${fixed(pf.arithmetic.before, 3)}`,
+        ...(pf.positiveSequence ? [`PF positive sequence ${fixed(pf.positiveSequence.before, 3)}`] : []),
+      ];
+  if (v.neutralCurrentA) board.push(`neutral ${fixed(v.neutralCurrentA.before, 1)} A`);
   const parts = [
     headerLines(v.before).slice(0, 2).join('\n'),
     wrapText(`target: ${targetWords(r)}`, '', '  '),
@@ -332,8 +332,8 @@ export function renderNothingToAdd(r: CorrectionReport, studied: string): string
   if (v.metering) parts.push(meteringSection(v.metering, lineTableNow(v.metering, label)));
   parts.push(section('Lines as solved, without equipment') + lineTableNow(v, label));
   parts.push(section('Board') + wrapText(board.join(' · '), '  ', '    '));
-  const general = r.cautions.filter((c) => !/capacit/i.test(c));
-  if (general.length) parts.push(section('Cautions') + general.map((c) => wrapText(c, '  * ', '    ')).join('\n'));
+  // The study gives only the cautions that hold without equipment to install.
+  if (r.cautions.length) parts.push(section('Cautions') + r.cautions.map((c) => wrapText(c, '  * ', '    ')).join('\n'));
   return `${parts.join('\n')}\n`;
 }
 

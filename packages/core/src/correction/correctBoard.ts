@@ -19,7 +19,7 @@ import { defaultPractice, selectBankUnits } from './selectBankUnits.js';
 import { verifyCorrection, type VerifyCorrectionOptions } from './verifyCorrection.js';
 import { scaleBoardLoads } from './scaleBoardLoads.js';
 import type { BankSizing, CompensatorSizing, CorrectionReport, CorrectionStatus, CorrectionWarning, SizedEquipment } from './correctionResult.js';
-import { arrangementNames, correctionCautions, infeasibleReason, meteringWarning, reportSummary, warningText } from './correctionWording.js';
+import { arrangementNames, correctionCautions, infeasibleReason, MODEL_CAUTION, meteringWarning, reportSummary, warningText } from './correctionWording.js';
 import { definedOnly } from './_internal/optionSchemas.js';
 import { assertViableBoard } from '../analysis/viableOperatingPoint.js';
 import { CORRECTION_DEFAULTS } from './correctionDefaults.js';
@@ -216,6 +216,7 @@ export function correctBoard(board: Board, spec: unknown): CorrectionReport {
     balance,
     reactorResizing: resizing,
     warnings,
-    cautions: correctionCautions(regionWords(conventionsOf(board).region, board.system).groundWord),
+    // Nothing to install: the capacitor cautions (discharge, inrush, resonance) are for equipment being added.
+    cautions: status === 'already-meets-target' ? [MODEL_CAUTION] : correctionCautions(regionWords(conventionsOf(board).region, board.system).groundWord),
   };
 }

@@ -154,12 +154,16 @@ export const warningText = {
   idealSource: 'the source impedance is zero, so the steady voltage rise and the resonance order cannot be estimated',
 };
 
-/** Shown with every correction result, in the region's words ("earth" or "ground"). */
+/** The caution that holds with or without equipment to install. */
+export const MODEL_CAUTION =
+  'These figures come from the model you entered. Any bank or compensator must be designed to the local codes and checked by a licensed professional before it is installed.';
+
+/** Shown with every correction result that adds equipment, in the region's words ("earth" or "ground"). */
 export const correctionCautions = (ground: 'earth' | 'ground'): readonly string[] => [
   `Capacitors hold their charge after they are switched off. Each unit needs a discharge device that is always connected (IEC 60831-1: down to 75 V or less within 3 minutes; NEC 460.6: 50 V or less within 1 minute); wait at least that long, prove the terminals dead, then short them together and to ${ground} before touching.`,
   'Switching a capacitor step on draws a short, high inrush current, far higher when other steps are already energised: use contactors rated for capacitor duty with damping resistors or reactors, and let a step discharge before it is switched on again.',
   'Adding capacitance moves the supply resonance down in frequency. This study does not check harmonics: check resonance and capacitor duty against the harmonic spectrum of the board separately before installing.',
-  'These figures come from the model you entered. Any bank or compensator must be designed to the local codes and checked by a licensed professional before it is installed.',
+  MODEL_CAUTION,
 ];
 
 /** The correction cautions in IEC words (the library's constant; reports use the board's region). */
