@@ -87,17 +87,18 @@ describe('noise floor', () => {
     expect(report.reasons.join(' ')).toMatch(/draws no active power/);
     expect(report.reasons.join(' ')).not.toMatch(/exports/);
   });
-  it('a neutral equal to the lightest phase in exact arithmetic (A–N beside a heavier B–C load) never reads as above it, whichever round-off the solve path leaves', () => {
+  it('a neutral equal to a phase in exact arithmetic (A–N beside a B–C load, A the heaviest) never reads as above it, whichever round-off the solve path leaves', () => {
     // Common practice, no source: the neutral carries phase A's current back, so "more than the
-    // lightest phase" is a tie that only round-off could break.
+    // heaviest phase" is a tie that only round-off could break where A is the heaviest.
     let ties = 0;
     for (let k = 1; k <= 40; k++) {
       const loads = [
-        { name: 'lamps', connection: 'A-N', kW: 0.37 * k, pf: 0.93 },
-        { name: 'welder', connection: 'B-C', kW: 0.74 * k + 4.1, pf: 0.71 },
+        { name: 'lamps', connection: 'A-N', kW: 0.74 * k + 4.1, pf: 0.93 },
+        { name: 'welder', connection: 'B-C', kW: 0.37 * k, pf: 0.71 },
       ] as const;
       for (const r of [solveBoard({ supply: withTransformer(160), loads }), solveBoard({ supply, loads })]) {
         const a = r.phases[0]!.current.magnitude;
+        expect(Math.max(...r.phases.map((p) => p.current.magnitude))).toBe(a);
         expect(Math.abs(r.neutral!.current.magnitude - a)).toBeLessThanOrEqual(1e-12 * a);
         if (r.neutral!.current.magnitude !== a) ties++;
         expect(r.warnings.map((w) => w.code)).not.toContain('neutral-above-phase');
@@ -107,7 +108,8 @@ describe('noise floor', () => {
     expect(ties).toBeGreaterThan(0);
   });
   it('a 1e-9 kW board prints its tiny neutral current in significant figures, not as 0.0 A', () => {
-    const r = solveBoard({ supply, loads: [{ name: 'indicator', connection: 'A-N', kW: 1e-9, pf: 1 }, { name: 'other', connection: 'B-N', kW: 2e-9, pf: 1 }] });
+    // A leading load on B beside a resistive one on A: the neutral is √3 × either current, above both.
+    const r = solveBoard({ supply, loads: [{ name: 'indicator', connection: 'A-N', kW: 1e-9, pf: 1 }, { name: 'other', connection: 'B-N', kW: 0.5e-9, pf: 0.5, sense: 'leading' }] });
     const w = r.warnings.find((x) => x.code === 'neutral-above-phase');
     expect(w?.message).not.toMatch(/ 0\.0 A/);
     expect(w?.message).toMatch(/carries \d\.\de-\d+ A/);

@@ -10,6 +10,25 @@ describe('solveBoard on an ideal source', () => {
     expect(r.phases[0]!.current.magnitude).toBeCloseTo(ia, 9);
     expect(r.neutral!.current.magnitude).toBeCloseTo(ia, 9);
     expect(r.phases[1]!.current.magnitude).toBeLessThan(1e-12);
-    expect(r.warnings.map((w) => w.code)).toContain('neutral-above-phase');
+    // The neutral is phase A's return, no more than the heaviest phase: no warning (NEC 310.15(E)(1)).
+    expect(r.warnings.map((w) => w.code)).not.toContain('neutral-above-phase');
+  });
+  it('a heater on A beside a leading load of 0.9 × its current on B: the neutral carries 1.65 × the heaviest phase, and says so', () => {
+    // Ideal source: I_A = I at 0°, I_B = 0.9·I at −120° + 60° (PF 0.5 leading) = −60°, so
+    // |I_A + I_B| = I·|1 + 0.9·e^(−j60°)| = I·√(1.45² + (0.9·sin 60°)²) (phasor sum, METHODS §1).
+    const r = solveBoard({
+      supply,
+      loads: [
+        { name: 'heater', connection: 'A-N', kW: 2.3, pf: 1 },
+        { name: 'capacitive', connection: 'B-N', kW: 0.9 * 1.15, pf: 0.5, sense: 'leading' },
+      ],
+    });
+    const i = 2300 / (400 / Math.sqrt(3));
+    const neutral = i * Math.hypot(1.45, 0.9 * Math.sin(Math.PI / 3));
+    expect(r.neutral!.current.magnitude).toBeCloseTo(neutral, 9);
+    const w = r.warnings.find((x) => x.code === 'neutral-above-phase');
+    expect(w?.threshold).toBeCloseTo(i, 9);
+    expect(w?.message).toBe(`neutral carries ${neutral.toFixed(1)} A, more than the heaviest phase (A, ${i.toFixed(1)} A): no phase breaker limits it, so the neutral must be rated for this current`);
+    expect(r.cautions.some((c) => c.startsWith('A neutral carrying more current than a phase conductor'))).toBe(true);
   });
 });

@@ -64,14 +64,17 @@ export function boardWarnings(input: {
   const { phases, neutral, unbalance, loads, lineRatingA } = input;
   const label = input.label ?? ((t: string) => t);
   const limits = input.limits ?? presetLimits('en50160-supply');
-  const smallest = Math.min(...phases.map((p) => p.current.magnitude));
-  const largest = Math.max(...phases.map((p) => p.current.magnitude));
-  if (neutral && phases.length > 1 && neutral.current.magnitude > smallest * (1 + ROUND_OFF_MARGIN) && neutral.current.magnitude > 0.01 * largest)
+  const heaviest = phases.reduce<PhaseReading | undefined>((h, p) => (h === undefined || p.current.magnitude > h.current.magnitude ? p : h), undefined);
+  const largest = heaviest?.current.magnitude ?? 0;
+  // Above the heaviest phase, not the lightest: a neutral that carries only the unbalance of its
+  // phases is bounded by their currents, which their breakers limit, and is not counted as a
+  // current-carrying conductor (NEC 310.15(E)(1), METHODS §6). Above every phase, nothing limits it.
+  if (heaviest && neutral && phases.length > 1 && neutral.current.magnitude > largest * (1 + ROUND_OFF_MARGIN))
     out.push({
       code: 'neutral-above-phase',
-      message: `neutral carries ${amps(neutral.current.magnitude)} A, more than the lightest phase (${amps(smallest)} A): it is a current-carrying conductor and must be sized for it`,
+      message: `neutral carries ${amps(neutral.current.magnitude)} A, more than the heaviest phase (${label(heaviest.phase)}, ${amps(largest)} A): no phase breaker limits it, so the neutral must be rated for this current`,
       value: neutral.current.magnitude,
-      threshold: smallest,
+      threshold: largest,
     });
   if (neutral?.ratingA != null && neutral.current.magnitude > neutral.ratingA)
     out.push({
