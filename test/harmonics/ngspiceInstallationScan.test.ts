@@ -7,7 +7,8 @@
  * an installation whose transformer has a zero-sequence impedance with a star bank on a sub-board
  * (the scan follows the file's earthing of the star point); and Ferrybank joinery (two banks on two
  * boards) in a mixed state — one step of the machine shop's bank with the finishing shop's bank at
- * its first step — as the joint scan sets it (impedancesIn). 1e-6 relative.
+ * its first step — as the joint scan sets it (impedancesIn); and a sixteen-floor riser with a bank on
+ * the top floor, large enough that the scan factorises the sparse matrix. 1e-6 relative.
  * Worst figures go to test/harmonics/.ngspice-installation-scan.json. Skipped without ngspice unless CI=true.
  */
 import { mkdtempSync, readFileSync, rmSync } from 'node:fs';
@@ -55,9 +56,33 @@ const STAR_POINT: InstallationSpec = {
   harmonics: { scan: { maxOrder: 13, step: 0.2 }, banks: [{ board: 'Plant', connection: 'star', ratedV: 440, stepsKvar: [10, 15] }] },
 } as InstallationSpec;
 
+/**
+ * A 16-floor riser (invented): a tap-off board per floor, 3.5 m of 95 mm² between floors, each floor's
+ * flats on one phase in turn, a delta bank on the top floor. About 70 unknowns, so the scan factorises
+ * the sparse matrix (network/sparseTerminalImpedance.ts) rather than inverting the dense one.
+ */
+const TALL_RISER: InstallationSpec = {
+  name: 'sixteen-floor riser',
+  supply: { system: 'three-phase-4wire', voltage: { lineToLine: 400 }, frequencyHz: 50, transformer: { kVA: 500, impedancePercent: 5, xOverR: 5 } },
+  boards: [
+    { name: 'Floor 0', feeder: { lengthM: 30, line: { mm2: 185 }, neutral: { mm2: 185 } }, loads: [{ name: 'lifts', connection: 'ABC-delta', kW: 15, pf: 0.8 }] },
+    ...Array.from({ length: 15 }, (_, i) => ({
+      name: `Floor ${i + 1}`,
+      fedFrom: `Floor ${i}`,
+      feeder: { lengthM: 3.5, line: { mm2: 95 }, neutral: { mm2: 95 } },
+      loads: [
+        { name: `flats ${i + 1}`, connection: (['A-N', 'B-N', 'C-N'] as const)[i % 3]!, kW: 6 + (i % 4), pf: 0.95 },
+        { name: `landing ${i + 1}`, connection: (['B-N', 'C-N', 'A-N'] as const)[i % 3]!, kW: 0.4 },
+      ],
+    })),
+  ],
+  harmonics: { scan: { maxOrder: 13, step: 0.25 }, banks: [{ board: 'Floor 15', connection: 'delta', ratedV: 440, stepsKvar: [10, 10] }] },
+} as InstallationSpec;
+
 const CASES = [
   { name: 'Harrow Yard studios, bank on Workshop', spec: example('harrow-yard-studios.yaml'), grid: scanGrid(25, 0.25) },
   { name: 'zero-sequence supply, star bank on Plant', spec: STAR_POINT, grid: scanGrid(13, 0.2) },
+  { name: 'sixteen-floor riser, delta bank on the top floor (sparse factorisation)', spec: TALL_RISER, grid: scanGrid(13, 0.25) },
 ];
 
 describe.skipIf(!ngspice && !mustRun)(`installation scan against ngspice (${ngspice ?? 'missing'})`, () => {

@@ -189,7 +189,7 @@ export { solveInstallationAtOrder, installationAtOrder } from './harmonics/insta
 export { createInstallationScanEvaluator } from './harmonics/scanEvaluator.js';
 export type { FixedInstallationInput } from './network/solveFixedInstallation.js';
 export { solveFixedInstallation } from './network/solveFixedInstallation.js';
-export type { ScanEvaluator, ScanBank, BankState } from './harmonics/scanEvaluator.js';
+export type { ScanEvaluator, ScanEvaluatorOptions, ScanBank, BankState } from './harmonics/scanEvaluator.js';
 export type { JointScanOptions, NetworkState } from './harmonics/scanJointResonance.js';
 export { scanJointResonance, scanNetworkStates, controllerLevels, switchingLevels } from './harmonics/scanJointResonance.js';
 export { scanResonance, createScanEvaluator, scanGrid, stepCombinations, roundForPlot, shortCircuitVA } from './harmonics/scanResonance.js';

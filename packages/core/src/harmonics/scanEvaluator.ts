@@ -11,13 +11,15 @@
  * Per order the elements and the loads outside the banks are stamped once;
  * each state then adds the bank parts that are on — this board's bank and any
  * other board's — and inverts the nodal matrix (network/terminalImpedance.ts:
- * flat typed arrays, no allocation in the loop).
+ * flat typed arrays, no allocation in the loop), or on a network larger than a
+ * board factorises it sparse (network/sparseTerminalImpedance.ts).
  */
 import { inverse, type ComplexValue } from '../complex.js';
 import type { Board, Terminal } from '../board/boardModel.js';
 import { REFERENCE } from '../network/circuit.js';
 import { compileInstallation, type InstallationSolution } from '../network/solveNetwork.js';
-import { copyNodalMatrix, createNodalMatrix, impedanceBetween, invertNodalMatrix, stampAdmittance } from '../network/terminalImpedance.js';
+import { copyNodalMatrix, createNodalMatrix, impedanceBetween, invertNodalMatrix, stampAdmittance, type NodalMatrix } from '../network/terminalImpedance.js';
+import { SparseTerminalImpedance } from '../network/sparseTerminalImpedance.js';
 import type { HarmonicModel, LoadBehaviour } from './harmonicModel.js';
 import { branchAdmittanceAtOrder } from './networkAtOrder.js';
 
@@ -94,12 +96,28 @@ function numberUnknowns(circuit: ReturnType<typeof compileInstallation>['network
   return index;
 }
 
+export interface ScanEvaluatorOptions {
+  /**
+   * How the network is solved at each order and state: `auto` (default) factorises a sparse
+   * matrix above 48 unknowns (an installation of more than a few boards) and inverts the dense
+   * one below; `dense` and `sparse` force one (`sparse` still hands a state whose pivot or
+   * residual it cannot trust to the dense pivoted inverse). The two agree to round-off; the
+   * choice is for tests and benchmarks.
+   */
+  readonly factorisation?: 'auto' | 'dense' | 'sparse';
+}
+
 /**
  * The evaluator for board `boardIndex` of a solved installation (0 = main board).
  * @param fundamental the installation solved at the fundamental with every bank part on
  * @param models one per board: how its loads behave at harmonic orders; every board's bank is switchable
  */
-export function createInstallationScanEvaluator(fundamental: InstallationSolution, models: readonly HarmonicModel[], boardIndex: number): ScanEvaluator {
+export function createInstallationScanEvaluator(
+  fundamental: InstallationSolution,
+  models: readonly HarmonicModel[],
+  boardIndex: number,
+  options: ScanEvaluatorOptions = {},
+): ScanEvaluator {
   const { layout, network } = compileInstallation(fundamental.installation);
   const circuit = network.circuit;
   const unknown = numberUnknowns(circuit, network.live);
@@ -165,7 +183,8 @@ export function createInstallationScanEvaluator(fundamental: InstallationSolutio
       });
     });
   });
-  const stampFixed = (m: ReturnType<typeof createNodalMatrix>, h: number) => {
+  /** Each conductor, winding and linear load outside the banks at order h, as g + jb into `add(index, g, b)`. */
+  const stampFixed = (h: number, add: (i: number, g: number, b: number) => void) => {
     const rootH = Math.sqrt(h);
     for (let i = 0; i < fixed.kind.length; i++) {
       const a = fixed.a[i]!;
@@ -191,7 +210,7 @@ export function createInstallationScanEvaluator(fundamental: InstallationSolutio
           g = 0;
           s = (a * h) / (1 - h * h * b);
       }
-      stampAdmittance(m, fixed.from[i]!, fixed.to[i]!, g, s);
+      add(i, g, s);
     }
   };
 
@@ -226,19 +245,57 @@ export function createInstallationScanEvaluator(fundamental: InstallationSolutio
   [...starParts.values()].forEach((list, k) => (starStart[k + 1] = starStart[k]! + list.length));
   const partOn = new Uint8Array(parts.length);
 
-  const base = createNodalMatrix(size);
-  const work = createNodalMatrix(size);
-  const inverseWork = createNodalMatrix(size);
+  // Large networks (installations) factorise a sparse matrix; small ones (a board) invert the dense
+  // one, which is also every large network's fallback (sparseTerminalImpedance.ts). Dense matrices
+  // are made when first needed: three of them for 1,200 unknowns would take 69 MB.
+  let dense: { base: NodalMatrix; work: NodalMatrix; inverseWork: NodalMatrix; h: number } | null = null;
+  let order = Number.NaN;
+  const denseMatrices = () => {
+    dense ??= { base: createNodalMatrix(size), work: createNodalMatrix(size), inverseWork: createNodalMatrix(size), h: Number.NaN };
+    if (dense.h !== order) {
+      const base = dense.base;
+      base.re.fill(0);
+      base.im.fill(0);
+      stampFixed(order, (i, g, b) => stampAdmittance(base, fixed.from[i]!, fixed.to[i]!, g, b));
+      dense.h = order;
+    }
+    return dense;
+  };
+  const useSparse = options.factorisation === 'sparse' ? size > 0 : options.factorisation !== 'dense' && size > SPARSE_FROM_UNKNOWNS;
+  const sparse = useSparse ? new SparseTerminalImpedance(size, sparsePairs(fixed, stamps, starParts.keys()), ends.flat()) : null;
+  const slotsOf = (from: readonly number[], to: readonly number[]) => {
+    const slots = new Int32Array(4 * from.length);
+    if (sparse) from.forEach((p, i) => slots.set(sparse.slotsOf(p, to[i]!), 4 * i));
+    return slots;
+  };
+  const fixedSlots = slotsOf(fixed.from, fixed.to);
+  const stampSlots = slotsOf([...stampP], [...stampQ]);
+  const starSlots = slotsOf([...starNode], [...starNode].map(() => -1));
+  const zRe = new Float64Array(ends.length);
+  const zIm = new Float64Array(ends.length);
+  const tiedStar = (k: number) => {
+    for (let j = starStart[k]!; j < starStart[k + 1]!; j++) if (partOn[starPart[j]!] === 1) return true;
+    return false;
+  };
+  /** Z of every pair into zRe/zIm through the sparse factorisation; false when it hands over to the dense inverse. */
+  const evaluateSparse = (): boolean => {
+    if (!sparse) return false;
+    sparse.beginState();
+    for (let k = 0; k < stampPart.length; k++) if (partOn[stampPart[k]!] === 1) sparse.stamp(stampSlots, 4 * k, stampRe[k]!, stampIm[k]!);
+    for (let k = 0; k < starNode.length; k++) if (!tiedStar(k)) sparse.stamp(starSlots, 4 * k, 1, 0);
+    return sparse.evaluate(ends, zRe, zIm);
+  };
   const pairZ = new Float64Array(2);
   /** |Z| of every pair with the parts `partOn` marks. */
   const evaluate = (out: Float64Array, offset: number) => {
+    if (evaluateSparse()) {
+      for (let k = 0; k < ends.length; k++) out[offset + k] = Math.sqrt(zRe[k]! * zRe[k]! + zIm[k]! * zIm[k]!);
+      return;
+    }
+    const { base, work, inverseWork } = denseMatrices();
     copyNodalMatrix(base, work);
     for (let k = 0; k < stampPart.length; k++) if (partOn[stampPart[k]!] === 1) stampAdmittance(work, stampP[k]!, stampQ[k]!, stampRe[k]!, stampIm[k]!);
-    for (let k = 0; k < starNode.length; k++) {
-      let tied = false;
-      for (let j = starStart[k]!; j < starStart[k + 1]! && !tied; j++) tied = partOn[starPart[j]!] === 1;
-      if (!tied) stampAdmittance(work, starNode[k]!, -1, 1, 0);
-    }
+    for (let k = 0; k < starNode.length; k++) if (!tiedStar(k)) stampAdmittance(work, starNode[k]!, -1, 1, 0);
     if (size > 0) invertNodalMatrix(work, inverseWork);
     for (let k = 0; k < ends.length; k++) {
       if (size === 0) pairZ.fill(0);
@@ -255,9 +312,11 @@ export function createInstallationScanEvaluator(fundamental: InstallationSolutio
       // Off the exact series resonance of a lossless detuned branch, where its admittance is infinite.
       let h = h0;
       for (const p of detuningFactors) if (Math.abs(1 - h0 * h0 * p) < 1e-9) h = h0 * (1 + 1e-7);
-      base.re.fill(0);
-      base.im.fill(0);
-      stampFixed(base, h);
+      order = h;
+      if (sparse) {
+        sparse.clearBase();
+        stampFixed(h, (i, g, b) => sparse.stampBase(fixedSlots, 4 * i, g, b));
+      } else denseMatrices();
       stamps.forEach((x, k) => {
         const y = branchAdmittanceAtOrder(x.y1, x.behaviour, h);
         stampRe[k] = y.re;
@@ -280,6 +339,20 @@ export function createInstallationScanEvaluator(fundamental: InstallationSolutio
       evaluate(out, offset);
     },
   };
+}
+
+/**
+ * Unknowns above which the scan factorises a sparse matrix. A board has at most a few dozen
+ * (three phases, the neutral, the source's internal nodes, a floating star point per star load);
+ * below this the dense inverse costs microseconds and its figures stay those it always gave.
+ */
+const SPARSE_FROM_UNKNOWNS = 48;
+
+/** Every (p, q) the sparse matrix takes a stamp at: conductors, loads, bank parts and the floating star points' unit ties. */
+function* sparsePairs(fixed: Parts, stamps: readonly { p: number; q: number }[], stars: Iterable<number>): Iterable<readonly [number, number]> {
+  for (let i = 0; i < fixed.from.length; i++) yield [fixed.from[i]!, fixed.to[i]!];
+  for (const x of stamps) yield [x.p, x.q];
+  for (const n of stars) yield [n, -1];
 }
 
 /** The evaluator of a single board (the installation with one board). */
