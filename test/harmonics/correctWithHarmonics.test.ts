@@ -76,7 +76,7 @@ describe('detuned banks in the correction study', () => {
       supply: { system: 'three-phase-4wire', voltage: { lineToLine: 400 }, frequencyHz: 50, transformer: { kVA: 400, impedancePercent: 4, xOverR: 5 } },
       loads: [
         { name: 'ovens', connection: 'ABC-delta', kW: 120, pf: 1 },
-        { name: 'fan', connection: 'ABC-delta', kW: 15, pf: 0.75 },
+        { name: 'fan', connection: 'ABC-delta', kW: 40, pf: 0.7 },
         { name: 'controls', connection: 'A-N', kW: 2, pf: 0.97, spectrum: [{ order: 3, percent: 30 }, { order: 5, percent: 10 }] },
       ],
       correction: { arrangement: 'delta-bank', target: { pf: 0.98 } },
@@ -91,6 +91,26 @@ describe('detuned banks in the correction study', () => {
     const { cautions: plainCautions, ...plain } = correctBoard(b, parsed.correction);
     expect(JSON.parse(JSON.stringify(rest))).toEqual(JSON.parse(JSON.stringify(plain)));
     expect(cautions).toHaveLength(plainCautions.length);
+    expect(plain.status).toBe('meets-target');
+  });
+
+  it('a board that already meets the target: no variant is sized or checked, and the report says why', () => {
+    // The same bakery with its small fan: P 137 kW, Q 13.2 kvar, PF 0.995 ≥ 0.98 before anything is added.
+    const met: BoardSpec = {
+      supply: { system: 'three-phase-4wire', voltage: { lineToLine: 400 }, frequencyHz: 50, transformer: { kVA: 400, impedancePercent: 4, xOverR: 5 } },
+      loads: [
+        { name: 'ovens', connection: 'ABC-delta', kW: 120, pf: 1 },
+        { name: 'fan', connection: 'ABC-delta', kW: 15, pf: 0.75 },
+        { name: 'controls', connection: 'A-N', kW: 2, pf: 0.97, spectrum: [{ order: 3, percent: 30 }, { order: 5, percent: 10 }] },
+      ],
+      correction: { arrangement: 'delta-bank', target: { pf: 0.98 } },
+    };
+    const parsed = parseBoard(met);
+    const r = correctWithHarmonics(parsed, normaliseBoard(parsed), parsed.correction);
+    expect(r.status).toBe('already-meets-target');
+    expect(r.harmonics.variants).toEqual([]);
+    expect(r.harmonics.check).toBeNull();
+    expect(r.harmonics.summary).toBe('nothing is added, so there is no bank to check against the harmonics');
   });
 });
 

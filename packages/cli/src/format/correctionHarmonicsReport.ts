@@ -10,6 +10,7 @@ const BOARD_FILE_DETAILS = 'details: trivar harmonics on the board file; --json 
 const switchedCell = (v: CorrectionVariant) => (v.resonantOrdersOtherBanksSwitched?.length ? v.resonantOrdersOtherBanksSwitched.join(' ') : '-');
 
 export function renderCorrectionHarmonics(h: CorrectionHarmonics<unknown>, details = BOARD_FILE_DETAILS): string {
+  if (h.variants.length === 0) return [section('Harmonic check'), wrapText(h.summary, '  ', '    '), ''].join('\n');
   const switched = h.variants.some((v) => v.resonantOrdersOtherBanksSwitched !== undefined);
   const rows = h.variants.map((v) => [
     `${v.name}${v.name === h.chosen ? ' *' : ''}`,
@@ -71,6 +72,11 @@ export function renderCorrectionHarmonics(h: CorrectionHarmonics<unknown>, detai
 
 /** Every arrangement's plain and detuned variants in one table (comparison mode). */
 export function renderComparisonHarmonics(h: HarmonicComparison['harmonics'], names: Readonly<Record<Arrangement, string>>): string {
+  // Arrangements that add nothing have no bank to check: named once below the table, not as rows of zero-kvar banks.
+  const idleOnes = h.arrangements.filter((a) => a.variants.length === 0);
+  // Each of them carries the same summary (nothing is added, nothing to check).
+  const idle = idleOnes.length ? [wrapText(`${idleOnes.map((a) => names[a.arrangement] ?? a.arrangement).join(', ')}: ${idleOnes[0]!.summary}`, '  ', '    ')] : [];
+  if (idleOnes.length === h.arrangements.length) return [section('Harmonic check'), ...idle, ''].join('\n');
   const switched = h.arrangements.some((a) => a.variants.some((v) => v.resonantOrdersOtherBanksSwitched !== undefined));
   const rows = h.arrangements.flatMap((a) =>
     a.variants.map((v, k) => [
@@ -111,6 +117,7 @@ export function renderComparisonHarmonics(h: HarmonicComparison['harmonics'], na
       rows,
     ),
     ...reasons,
+    ...idle,
     wrapText(`rule: ${h.rule}`, '  ', '    '),
     '',
   ].join('\n');

@@ -105,8 +105,9 @@ export type BankChecker<Check> = (report: CorrectionReport) => BankCheck<Check>;
 export interface CorrectionHarmonics<Check = HarmonicsReport> {
   /** The choice in words. */
   readonly summary: string;
-  /** Name of the chosen variant; null when none passes. */
+  /** Name of the chosen variant; null when none passes; `plain` where nothing is added (then `variants` is empty). */
   readonly chosen: string | null;
+  /** Every variant sized and checked; empty where the study adds nothing. */
   readonly variants: readonly CorrectionVariant[];
   /** The harmonic study of the bank in the report (scan curves included, for plotting); null when nothing is built. */
   readonly check: Check | null;
@@ -304,6 +305,9 @@ function reactorsOf(report: CorrectionReport, frequencyHz: number, p: number): C
   return sizes.map((uf) => ({ capacitancePerBranchUF: uf, inductanceMH: (1e3 * p) / (omega * omega * uf * 1e-6) }));
 }
 
+/** The harmonic check's summary where the study adds nothing. */
+export const NOTHING_TO_CHECK = 'nothing is added, so there is no bank to check against the harmonics';
+
 /** A third harmonic worth a 14 % reactor: above this share of the fundamental on some line (common practice, no source). */
 const SIGNIFICANT_THIRD = 0.1;
 
@@ -342,6 +346,13 @@ export function correctWithBankCheck<Check>(
   wording: HarmonicCheckWording,
 ): HarmonicCorrectionReport<Check> {
   const plain = variantOf(checkBank, board, correctBoard(board, study), 'plain', 0);
+  // Nothing added: no bank to scan or detune, so no variant is sized or checked (a table of
+  // zero-kvar banks that "pass" would read as a check that was made).
+  if (plain.report.status === 'already-meets-target')
+    return {
+      ...plain.report,
+      harmonics: { summary: NOTHING_TO_CHECK, chosen: 'plain', variants: [], check: null, basis: `no bank is added, so none is scanned or sized with detuning reactors${wording.basis ? `; ${wording.basis}` : ''}` },
+    };
   const parsed = parseCorrectionSpec(study, board);
   const setting = detuning ?? 'auto';
   const factors: number[] = setting === 'none' ? [] : setting === 'auto' ? [...DETUNING_FACTORS_PERCENT] : [setting];
@@ -429,8 +440,11 @@ export function compareWithBankCheck<Check>(board: Board, study: unknown, correc
   // An arrangement that meets the target as plain yet fails the harmonic check in every variant is said so.
   const failing = checked.filter((c) => c.harmonics && !c.harmonics.chosen && ['meets-target', 'meets-target-at-nominal-capacitance'].includes(c.outcome.report!.status)).map((c) => name(c.outcome.arrangement));
   const failingWords = failing.length ? ` ${capitalised(failing.join(' and '))} ${failing.length > 1 ? 'fail' : 'fails'} the harmonic check in every variant.` : '';
+  const checkWords = pick && pick.harmonics!.variants.length > 0 ? ` Harmonic check of the ${name(pick.outcome.arrangement)}: ${pick.harmonics!.summary}.` : '';
   const why = pick
-    ? `${choice.why.replace(/\.?$/, '.')}${failingWords} Harmonic check of the ${name(pick.outcome.arrangement)}: ${pick.harmonics!.summary}.`
+    ? failingWords || checkWords
+      ? `${choice.why.replace(/\.?$/, '.')}${failingWords}${checkWords}`
+      : choice.why
     : `${comparison.why.replace(/\.?$/, '.')} But no arrangement passes the harmonic check in any variant: a tuned filter or a specialist harmonic study is needed.`;
   return {
     ...comparison,

@@ -33,7 +33,8 @@ export function correctionComparisonBlocks(c: CorrectionComparison | HarmonicCom
   // The variant shown for an arrangement: the one its harmonic check chose, else the plain bank (none passes).
   const variantOf = (o: CorrectionComparison['outcomes'][number]) => {
     const a = checked?.arrangements.find((x) => x.arrangement === o.arrangement);
-    return !o.report || !a ? dash : (a.chosen ?? 'plain (no variant passes)');
+    // No variants: the arrangement adds nothing, so there is no bank to name.
+    return !o.report || !a || a.variants.length === 0 ? dash : (a.chosen ?? 'plain (no variant passes)');
   };
   const withVariant = (row: string[], o: CorrectionComparison['outcomes'][number]) => (checked ? [row[0]!, variantOf(o), ...row.slice(1)] : row);
   return [
