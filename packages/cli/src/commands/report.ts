@@ -19,7 +19,7 @@ import {
   isInstallationInput,
   labellerOf,
   normaliseBoard,
-  normaliseInstallation,
+  installationInService,
   parseBoard,
   parseInstallation,
   profileSection,
@@ -179,7 +179,8 @@ async function installationDocument(raw: unknown, figures: unknown, options: Rep
   // boards beyond it and the drops before it, which the hand check's effects do not separate.
   if (figures !== null) throw new UsageError(`--hand-figures: ${HAND_FIGURES_ON_INSTALLATION}`);
   const spec = parseInstallation(raw);
-  const { installation } = normaliseInstallation(spec);
+  // The banks the file lists in service, as trivar solve takes them.
+  const installation = installationInService(spec);
   const result = solveInstallationModel(installation);
   // As for a board: a collapse is stated and the report written, without the studies that refuse that state.
   const viable = collapseOf(result) === null;

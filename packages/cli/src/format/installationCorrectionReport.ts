@@ -19,6 +19,7 @@ import { treeName } from './boardTree.js';
 import { renderCorrectionReport } from './correctionReport.js';
 import { comparedSystem, renderComparisonReport, tableNames } from './comparisonReport.js';
 import { REPORT_WIDTH, wrapText } from './wrapText.js';
+import { bankInServiceWords } from './banksInServiceWords.js';
 
 const note = (text: string) => `${wrapText(text, '  (', '   ', REPORT_WIDTH - 1)})`;
 const change = (x: BeforeAfter | null, digits: number) => (x === null ? '' : `${fixed(x.before, digits)} → ${fixed(x.after, digits)}`);
@@ -34,8 +35,21 @@ function placeLines(c: Omit<InstallationCorrection | InstallationComparison, 're
       '',
       '',
     ),
+    ...banksLines(c),
     '',
   ].join('\n');
+}
+
+/** The file's banks: those on other boards in service in every solve, the one on this board replaced. */
+function banksLines(c: Omit<InstallationCorrection | InstallationComparison, 'report' | 'comparison'>): string[] {
+  const others = c.otherBanksInService.length
+    ? [`Banks in service in every solve, before and after, as the file lists them under harmonics.banks (every step on unless stepsInService names the steps): ${c.otherBanksInService.map((b) => bankInServiceWords(b)).join('; ')}.`]
+    : [];
+  const r = c.replacedBank;
+  const replaced = r
+    ? [`The file's bank on ${c.board} (${[...(r.fixedKvar > 0 ? [`fixed ${r.fixedKvar} kvar`] : []), `steps ${r.stepsKvar.join('+')} kvar`].join(', ')}, ${r.ratedV} V units) is left out: the equipment takes its place.`]
+    : [];
+  return [...others, ...replaced].map((t) => wrapText(t, '', ''));
 }
 
 function boardTable(e: InstallationEffect): string {

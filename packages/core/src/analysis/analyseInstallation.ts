@@ -2,10 +2,12 @@
 import type { InstallationSolution } from '../network/solveNetwork.js';
 import type { SolveOptions } from '../network/solveOptions.js';
 import { feedingOrder } from '../network/installationCircuit.js';
+import { ratedKvarInService } from '../network/installationModel.js';
 import { analyseSolution } from './analyseSolution.js';
 import { studyOpenNeutral } from './studyOpenNeutral.js';
 import type { BoardResult } from './boardResult.js';
-import type { FeederReading, InstallationResult } from './installationResult.js';
+import type { BankInService } from '../board/boardModel.js';
+import type { BankInServiceReading, FeederReading, InstallationResult } from './installationResult.js';
 
 export interface AnalyseInstallationOptions extends SolveOptions {
   /** Also study a broken neutral in each board's feeder. @defaultValue the file's `studies.openNeutral` */
@@ -60,6 +62,7 @@ export function analyseInstallation(solution: InstallationSolution, options: Ana
     installation: { name: installation.name, system: main.system, boardCount: results.length },
     boards: order.map((b) => ({ name: nameOf(b), fedFrom: parentOf(b) === null ? null : nameOf(parentOf(b)!), depth: depth[b]!, result: results[b]! })),
     feeders: order.map(feederOf),
+    banksInService: (installation.banksInService ?? []).map((bank) => bankReading(bank, nameOf(bank.boardIndex), results[bank.boardIndex]!)),
     totals: {
       sourceKW: results[0]!.source.kW,
       sourceKvar: results[0]!.source.kvar,
@@ -69,5 +72,16 @@ export function analyseInstallation(solution: InstallationSolution, options: Ana
       lowestVoltagePercent: lowest.percent,
       lowestVoltageBoard: lowest.board,
     },
+  };
+}
+
+/** A bank in service as solved: its rated output in service and what its parts deliver (−Σ of their kvar). */
+function bankReading(bank: BankInService, board: string, result: BoardResult): BankInServiceReading {
+  const { boardIndex: _b, loads, ...rest } = bank;
+  return {
+    board,
+    ...rest,
+    ratedKvarInService: ratedKvarInService(bank),
+    deliveredKvar: -loads.reduce((s, k) => s + result.loads[k]!.kvar, 0),
   };
 }

@@ -5,9 +5,10 @@
  * every step — and its effect on every board and on the supply is read from
  * two solves of the whole installation, without and with the equipment.
  */
-import type { Installation } from '../board/boardModel.js';
+import type { BankInService, Installation } from '../board/boardModel.js';
+import type { BankInServiceReading } from '../analysis/installationResult.js';
 import { InputError, inputIssue } from '../errors.js';
-import { boardOfInstallation } from '../network/installationModel.js';
+import { boardOfInstallation, ratedKvarInService, withoutBankOn } from '../network/installationModel.js';
 import { correctBoard } from './correctBoard.js';
 import { compareCorrections, type CorrectionComparison } from './compareCorrections.js';
 import type { CorrectionReport } from './correctionResult.js';
@@ -26,6 +27,25 @@ interface PlacedCorrection {
   readonly boardIndex: number;
   /** Where the target is measured when not at the board's incomer (`target.measuredAt`): `origin` or a board's name. */
   readonly measuredAt?: string;
+  /**
+   * The file's bank on the equipment's board, which the equipment takes the place of: left out of every
+   * solve (the banks in service on other boards stay in, `effect.before.banksInService`); null when none.
+   */
+  readonly replacedBank: ReplacedBank | null;
+  /** The file's banks on other boards, in service at the fundamental in every solve of the study and its effect. */
+  readonly otherBanksInService: readonly OtherBankInService[];
+}
+
+/** A bank of the file on another board, in service (what it delivers: `effect.before.banksInService`). */
+export type OtherBankInService = Omit<BankInServiceReading, 'deliveredKvar'>;
+
+/** A bank of the file left out because the study's equipment takes its place. */
+export interface ReplacedBank {
+  readonly connection: 'delta' | 'star';
+  readonly ratedV: number;
+  readonly stepsKvar: readonly number[];
+  readonly fixedKvar: number;
+  readonly detuningPercent: number;
 }
 
 export interface InstallationCorrection extends PlacedCorrection {
@@ -60,17 +80,34 @@ export function installationBoardIndex(installation: Installation, name: string 
 /** The metering point of a study, where it is not the equipment's board. */
 export const measuredAt = (report: CorrectionReport): { measuredAt?: string } => (report.verification.metering ? { measuredAt: report.verification.metering.point } : {});
 
-/** The board the equipment goes on, with its place, and how the result names it. */
+/**
+ * The board the equipment goes on, with its place, and how the result names it. Banks the installation
+ * has in service (`withBanksInService`) stay in on the other boards; one on this board is taken out,
+ * the equipment taking its place.
+ */
 export function placeCorrection(installation: Installation, options: CorrectInstallationOptions | undefined) {
   const boardIndex = installationBoardIndex(installation, options?.board);
-  const board = boardOfInstallation(installation, boardIndex);
-  return { board, placed: { installation: installation.name, board: board.name, boardIndex } };
+  const replaced = installation.banksInService?.find((r) => r.boardIndex === boardIndex);
+  const inService = withoutBankOn(installation, boardIndex);
+  const board = boardOfInstallation(inService, boardIndex);
+  const replacedBank: ReplacedBank | null = replaced
+    ? { connection: replaced.connection, ratedV: replaced.ratedV, stepsKvar: replaced.stepsKvar, fixedKvar: replaced.fixedKvar, detuningPercent: replaced.detuningPercent }
+    : null;
+  const all = names(installation);
+  const otherBanksInService = (inService.banksInService ?? []).map((r) => otherBank(r, all[r.boardIndex]!));
+  return { board, placed: { installation: installation.name, board: board.name, boardIndex, replacedBank, otherBanksInService } };
+}
+
+function otherBank(bank: BankInService, board: string): OtherBankInService {
+  const { boardIndex: _b, loads: _l, ...rest } = bank;
+  return { board, ...rest, ratedKvarInService: ratedKvarInService(bank) };
 }
 
 /**
  * Sizes, builds and verifies correction on one board of an installation and reports its effect on every board.
  * @param installation from `normaliseInstallation(parseInstallation(file)).installation` (a one-board
- *   installation works too)
+ *   installation works too), with the file's banks in service where it lists any (`withBanksInService`):
+ *   those on other boards are in every solve, the one on this board is replaced by the equipment
  * @param spec the correction study (as for `correctBoard`; an arrangement is required)
  * @returns the study on the equipment's board and the before/after of every board, feeder and the supply
  * @throws {InputError} for an unknown board name or a study that is not valid for the board
