@@ -128,7 +128,7 @@ export { verifyCorrection } from './correction/verifyCorrection.js';
 export { correctBoard } from './correction/correctBoard.js';
 export type { CorrectionComparison, ArrangementOutcome, ArrangementFigures } from './correction/compareCorrections.js';
 export { compareCorrections } from './correction/compareCorrections.js';
-export type { InstallationCorrection, InstallationComparison, CorrectInstallationOptions, ReplacedBank, OtherBankInService } from './correction/correctInstallation.js';
+export type { InstallationCorrection, InstallationComparison, CorrectInstallationOptions, ReplacedBank, OtherBankInService, LeadingWithBanks } from './correction/correctInstallation.js';
 export { correctInstallation, compareInstallationCorrections, installationBoardIndex } from './correction/correctInstallation.js';
 export type { InstallationEffect, BoardEffect, IncomerLineEffect, SupplyEffect } from './correction/installationEffect.js';
 export { installationEffect } from './correction/installationEffect.js';

@@ -4,6 +4,7 @@
  */
 import {
   arrangementNames,
+  labelIn,
   meteringPointWords,
   type BeforeAfter,
   type InstallationComparison,
@@ -49,7 +50,23 @@ function banksLines(c: Omit<InstallationCorrection | InstallationComparison, 're
   const replaced = r
     ? [`The file's bank on ${c.board} (${[...(r.fixedKvar > 0 ? [`fixed ${r.fixedKvar} kvar`] : []), `steps ${r.stepsKvar.join('+')} kvar`].join(', ')}, ${r.ratedV} V units) is left out: the equipment takes its place.`]
     : [];
-  return [...others, ...replaced].map((t) => wrapText(t, '', ''));
+  return [...[...others, ...replaced].map((t) => wrapText(t, '', '')), ...leadingLines(c)];
+}
+
+/** The banks in service already make the target's point lead: said, with what follows for the equipment. */
+function leadingLines(c: Omit<InstallationCorrection | InstallationComparison, 'report' | 'comparison'>): string[] {
+  const l = c.leadingWithBanks;
+  if (!l) return [];
+  const where = l.point === c.board ? `the incomer of ${c.board}` : meteringPointWords(l.point);
+  const lowest = l.lines.reduce((a, b) => ((b.pf ?? 1) < (a.pf ?? 1) ? b : a));
+  const names = l.lines.map((x) => labelIn(l.phaseNames, x.phase)).join(', ');
+  return [
+    wrapText(
+      `! With those banks in service, line${l.lines.length === 1 ? '' : 's'} ${names} already lead${l.lines.length === 1 ? 's' : ''} at ${where} before any equipment (PF ${lowest.pf === null ? '-' : fixed(lowest.pf, 3)} leading at the lowest): the banks in service overcompensate there. Capacitors cannot raise a leading PF, and the target then asks only that no line leads more; take steps of those banks out (stepsInService in the file, or their controllers' settings) and study again.`,
+      '',
+      '  ',
+    ),
+  ];
 }
 
 function boardTable(e: InstallationEffect): string {

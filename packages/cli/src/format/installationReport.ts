@@ -139,7 +139,20 @@ function openNeutralSummary(r: InstallationResult): string | null {
 function banksLine(r: InstallationResult): string[] {
   if (!r.banksInService.length) return [];
   const banks = r.banksInService.map((b) => bankInServiceWords(b, b.deliveredKvar)).join('; ');
-  return [wrapText(`capacitor banks in service, as the file lists them under harmonics.banks (every step on unless stepsInService names the steps; each board's own kvar includes its bank): ${banks}`, '  ', '    ')];
+  const leading = r.banksInService.flatMap((b) => {
+    const board = r.boards.find((x) => x.name === b.board)!.result;
+    const led = board.phases.filter((p) => p.sense === 'leading');
+    if (!led.length) return [];
+    const lowest = Math.min(...led.map((p) => p.pf ?? 1));
+    return [
+      wrapText(
+        `! ${b.board} leads at its incomer with its bank in service (PF ${fixed(lowest, 3)} leading at the lowest line): more capacitance than its loads take at these loads. A controller would hold steps out; stepsInService in the file says which steps are in.`,
+        '  ',
+        '    ',
+      ),
+    ];
+  });
+  return [wrapText(`capacitor banks in service, as the file lists them under harmonics.banks (every step on unless stepsInService names the steps; each board's own kvar includes its bank): ${banks}`, '  ', '    '), ...leading];
 }
 
 export interface InstallationReportOptions {

@@ -5,8 +5,9 @@
  * every step — and its effect on every board and on the supply is read from
  * two solves of the whole installation, without and with the equipment.
  */
-import type { BankInService, Installation } from '../board/boardModel.js';
+import type { BankInService, Installation, PhaseId } from '../board/boardModel.js';
 import type { BankInServiceReading } from '../analysis/installationResult.js';
+import type { PhaseNaming } from '../board/conventions/phaseNames.js';
 import { InputError, inputIssue } from '../errors.js';
 import { boardOfInstallation, ratedKvarInService, withoutBankOn } from '../network/installationModel.js';
 import { correctBoard } from './correctBoard.js';
@@ -48,15 +49,32 @@ export interface ReplacedBank {
   readonly detuningPercent: number;
 }
 
+/**
+ * Lines that already lead where the target is judged before any equipment, with the banks in service:
+ * those banks overcompensate there, and a capacitor bank cannot raise a leading PF (the target then
+ * asks only that no line leads more).
+ */
+export interface LeadingWithBanks {
+  /** Where the target is judged: the equipment's board, or the metering point (`origin` or a board). */
+  readonly point: string;
+  readonly lines: readonly { readonly phase: PhaseId; readonly pf: number | null }[];
+  /** How the file names the lines, for sentences. */
+  readonly phaseNames: PhaseNaming;
+}
+
 export interface InstallationCorrection extends PlacedCorrection {
   /** The study on the equipment's board (the `before`/`after` of its verification are that board's). */
   readonly report: CorrectionReport;
+  /** Null unless banks are in service on other boards and a line leads where the target is judged before any equipment. */
+  readonly leadingWithBanks: LeadingWithBanks | null;
   /** Every board and the supply, without and with the equipment as verified. */
   readonly effect: InstallationEffect;
 }
 
 export interface InstallationComparison extends PlacedCorrection {
   readonly comparison: CorrectionComparison;
+  /** As `InstallationCorrection.leadingWithBanks`, from the arrangements' common before. */
+  readonly leadingWithBanks: LeadingWithBanks | null;
   /** The recommended arrangement's effect on every board; null when none is recommended. */
   readonly effect: InstallationEffect | null;
 }
@@ -75,6 +93,15 @@ export function installationBoardIndex(installation: Installation, name: string 
   if (index >= 0) return index;
   const expected = `a board of this installation: ${all.map((n) => JSON.stringify(n)).join(', ')}`;
   throw new InputError([{ ...inputIssue('unknown_board', option, expected, name), message: `${option}: expected ${expected} (received ${JSON.stringify(name)})` }], 'the options do not fit the installation');
+}
+
+/** The lines the banks in service make lead where the target is judged, before any equipment; null when none. */
+export function leadingWithBanks(placed: { board: string; otherBanksInService: readonly unknown[] }, report: CorrectionReport | null | undefined): LeadingWithBanks | null {
+  if (!report || placed.otherBanksInService.length === 0) return null;
+  const v = report.verification;
+  const before = v.metering ? v.metering.before : v.before;
+  const lines = before.phases.filter((p) => p.sense === 'leading').map((p) => ({ phase: p.phase, pf: p.pf }));
+  return lines.length ? { point: v.metering ? v.metering.point : placed.board, lines, phaseNames: before.conventions.phaseNames } : null;
 }
 
 /** The metering point of a study, where it is not the equipment's board. */
@@ -119,7 +146,7 @@ function otherBank(bank: BankInService, board: string): OtherBankInService {
 export function correctInstallation(installation: Installation, spec: unknown, options?: CorrectInstallationOptions): InstallationCorrection {
   const { board, placed } = placeCorrection(installation, options);
   const report = correctBoard(board, spec);
-  return { ...placed, ...measuredAt(report), report, effect: installationEffect(board, report.verification.equipment) };
+  return { ...placed, ...measuredAt(report), report, leadingWithBanks: leadingWithBanks(placed, report), effect: installationEffect(board, report.verification.equipment) };
 }
 
 /**
@@ -133,5 +160,5 @@ export function compareInstallationCorrections(installation: Installation, spec:
   const comparison = compareCorrections(board, spec);
   const chosen = comparison.outcomes.find((o) => o.arrangement === comparison.recommended)?.report;
   const studied = comparison.outcomes.find((o) => o.report !== null)?.report;
-  return { ...placed, ...(studied ? measuredAt(studied) : {}), comparison, effect: chosen ? installationEffect(board, chosen.verification.equipment) : null };
+  return { ...placed, ...(studied ? measuredAt(studied) : {}), comparison, leadingWithBanks: leadingWithBanks(placed, studied), effect: chosen ? installationEffect(board, chosen.verification.equipment) : null };
 }

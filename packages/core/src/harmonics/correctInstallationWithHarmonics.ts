@@ -16,7 +16,7 @@
  * brings near an order (its own, or one of the other banks' moved by it) is.
  */
 import type { Installation } from '../board/boardModel.js';
-import { placeCorrection, measuredAt, type CorrectInstallationOptions, type InstallationCorrection, type InstallationComparison } from '../correction/correctInstallation.js';
+import { placeCorrection, measuredAt, leadingWithBanks, type CorrectInstallationOptions, type InstallationCorrection, type InstallationComparison } from '../correction/correctInstallation.js';
 import { installationEffect } from '../correction/installationEffect.js';
 import { bankOfReport, compareWithBankCheck, correctWithBankCheck, withStudyTolerance, type BankCheck, type BankChecker, type HarmonicComparison, type HarmonicCorrectionReport } from './correctWithHarmonics.js';
 import { analyseInstallationHarmonics, resolveInstallationHarmonics, type HarmonicsInstallationSpec } from './studyInstallationHarmonics.js';
@@ -130,7 +130,7 @@ export function correctInstallationWithHarmonics(spec: HarmonicsInstallationSpec
   const { board, placed } = placeCorrection(withBanksInService(installation, spec.harmonics?.banks), options);
   let without: ResonanceWithoutBank | null = null;
   const report = correctWithBankCheck(board, study, spec.harmonics?.detuning, installationBankChecker(spec, placed.boardIndex, (w) => (without ??= w)), WORDING);
-  return { ...placed, ...measuredAt(report), report, resonanceWithoutBank: without, effect: installationEffect(board, report.verification.equipment) };
+  return { ...placed, ...measuredAt(report), report, leadingWithBanks: leadingWithBanks(placed, report), resonanceWithoutBank: without, effect: installationEffect(board, report.verification.equipment) };
 }
 
 /**
@@ -149,6 +149,7 @@ export function compareInstallationWithHarmonics(spec: HarmonicsInstallationSpec
     ...placed,
     ...(studied ? measuredAt(studied) : {}),
     comparison,
+    leadingWithBanks: leadingWithBanks(placed, studied),
     resonanceWithoutBank: without,
     effect: chosen ? installationEffect(board, chosen.verification.equipment) : null,
   };
