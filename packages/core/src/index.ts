@@ -186,6 +186,7 @@ export { studyInstallationHarmonics } from './boardFile/studyInstallationHarmoni
 export type { HarmonicsInstallationSpec, InstallationHarmonicModel, InstallationHarmonicsOptions, PlacedBank } from './harmonics/studyInstallationHarmonics.js';
 export { studyInstallationHarmonicsSpec, resolveInstallationHarmonics, analyseInstallationHarmonics } from './harmonics/studyInstallationHarmonics.js';
 export { withBanksInService } from './harmonics/banksInService.js';
+export { bankInServiceWords, BANKS_IN_SERVICE_BASIS } from './analysis/banksInServiceWords.js';
 export { installationInService } from './boardFile/installationInService.js';
 export { solveInstallationAtOrder, installationAtOrder } from './harmonics/installationAtOrder.js';
 export { createInstallationScanEvaluator } from './harmonics/scanEvaluator.js';

@@ -4,6 +4,8 @@
  */
 import {
   arrangementNames,
+  BANKS_IN_SERVICE_BASIS,
+  bankInServiceWords,
   labelIn,
   meteringPointWords,
   type BeforeAfter,
@@ -20,7 +22,6 @@ import { treeName } from './boardTree.js';
 import { renderCorrectionReport } from './correctionReport.js';
 import { comparedSystem, renderComparisonReport, tableNames } from './comparisonReport.js';
 import { REPORT_WIDTH, wrapText } from './wrapText.js';
-import { bankInServiceWords } from './banksInServiceWords.js';
 
 const note = (text: string) => `${wrapText(text, '  (', '   ', REPORT_WIDTH - 1)})`;
 const change = (x: BeforeAfter | null, digits: number) => (x === null ? '' : `${fixed(x.before, digits)} → ${fixed(x.after, digits)}`);
@@ -44,7 +45,7 @@ function placeLines(c: Omit<InstallationCorrection | InstallationComparison, 're
 /** The file's banks: those on other boards in service in every solve, the one on this board replaced. */
 function banksLines(c: Omit<InstallationCorrection | InstallationComparison, 'report' | 'comparison'>): string[] {
   const others = c.otherBanksInService.length
-    ? [`Banks in service in every solve, before and after, as the file lists them under harmonics.banks (every step on unless stepsInService names the steps): ${c.otherBanksInService.map((b) => bankInServiceWords(b)).join('; ')}.`]
+    ? [`Banks in service in every solve, before and after, ${BANKS_IN_SERVICE_BASIS}: ${c.otherBanksInService.map((b) => bankInServiceWords(b)).join('; ')}.`]
     : [];
   const r = c.replacedBank;
   const replaced = r

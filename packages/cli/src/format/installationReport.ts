@@ -1,8 +1,7 @@
 /** InstallationResult → the text report of `trivar solve` on an installation: a summary per board and per feeder. */
-import { bandWords, labelIn, type InstallationResult } from '@trivar/core';
+import { BANKS_IN_SERVICE_BASIS, bandWords, bankInServiceWords, labelIn, type InstallationResult } from '@trivar/core';
 import { fixed, renderTable, section } from './textTable.js';
 import { treeName } from './boardTree.js';
-import { bankInServiceWords } from './banksInServiceWords.js';
 import { renderSolveReport } from './solveReport.js';
 import { REPORT_WIDTH, wrapText } from './wrapText.js';
 
@@ -152,7 +151,7 @@ function banksLine(r: InstallationResult): string[] {
       ),
     ];
   });
-  return [wrapText(`capacitor banks in service, as the file lists them under harmonics.banks (every step on unless stepsInService names the steps; each board's own kvar includes its bank): ${banks}`, '  ', '    '), ...leading];
+  return [wrapText(`capacitor banks in service, ${BANKS_IN_SERVICE_BASIS} (each board's own kvar includes its bank): ${banks}`, '  ', '    '), ...leading];
 }
 
 export interface InstallationReportOptions {
