@@ -129,6 +129,18 @@ describe('solve: the banks the file lists are in service', () => {
     expect(bank.deliveredKvar).toBeLessThan(16.53);
   });
 
+  it('warns on a board its bank makes lead at its incomer, with the lowest PF, and not on one it leaves lagging', () => {
+    const small = solveInstallation(boatyard([paintShedBank])).boards[1]!.result;
+    expect(small.warnings.map((w) => w.code)).not.toContain('bank-in-service-leads');
+    expect(small.phases.every((p) => p.sense === 'lagging')).toBe(true);
+    const big = solveInstallation(boatyard([{ ...paintShedBank, stepsKvar: [30, 30] }])).boards[1]!.result;
+    const warning = big.warnings.find((w) => w.code === 'bank-in-service-leads')!;
+    // 60 kvar at 440 V delivers about 49 kvar at 400 V against 28.9 kvar of lagging loads: every line leads.
+    expect(big.phases.every((p) => p.sense === 'leading')).toBe(true);
+    expect(warning.value).toBe(Math.min(...big.phases.map((p) => p.pf!)));
+    expect(warning.message).toContain('lines A, B, C');
+  });
+
   it('takes only the steps stepsInService names, and a detuned part at its effective B/(1 − p)', () => {
     const bank: BankEntry = { ...paintShedBank, stepsKvar: [10, 15], fixedKvar: 5, detuningPercent: 7, stepsInService: [2] };
     const r = solveInstallation(boatyard([bank]));

@@ -47,7 +47,7 @@ export { normaliseInstallation } from './board/normaliseInstallation.js';
 export type { FeederSpec, PerPhaseConductorSpec, WindingSpec } from './board/boardSchema.js';
 export type { ConductorMaterial, ConductorSize, ConductorResistance, ConductorReactance, ConduitKind } from './board/cableLibrary.js';
 export { conductorReactance, conductorResistance, DEFAULT_CABLE_REACTANCE_OHM_PER_KM, DEFAULT_CONDUCTOR_TEMPERATURE_C } from './board/cableLibrary.js';
-export { installationOf, boardOfInstallation } from './network/installationModel.js';
+export { installationOf, boardOfInstallation, withoutBankOn } from './network/installationModel.js';
 export type { InstallationSolution, CompiledInstallation } from './network/solveNetwork.js';
 export { compileInstallation, solveCompiledInstallation, solveInstallationNetwork } from './network/solveNetwork.js';
 export type * from './analysis/installationResult.js';

@@ -138,20 +138,7 @@ function openNeutralSummary(r: InstallationResult): string | null {
 function banksLine(r: InstallationResult): string[] {
   if (!r.banksInService.length) return [];
   const banks = r.banksInService.map((b) => bankInServiceWords(b, b.deliveredKvar)).join('; ');
-  const leading = r.banksInService.flatMap((b) => {
-    const board = r.boards.find((x) => x.name === b.board)!.result;
-    const led = board.phases.filter((p) => p.sense === 'leading');
-    if (!led.length) return [];
-    const lowest = Math.min(...led.map((p) => p.pf ?? 1));
-    return [
-      wrapText(
-        `! ${b.board} leads at its incomer with its bank in service (PF ${fixed(lowest, 3)} leading at the lowest line): more capacitance than its loads take at these loads. A controller would hold steps out; stepsInService in the file says which steps are in.`,
-        '  ',
-        '    ',
-      ),
-    ];
-  });
-  return [wrapText(`capacitor banks in service, ${BANKS_IN_SERVICE_BASIS} (each board's own kvar includes its bank): ${banks}`, '  ', '    '), ...leading];
+  return [wrapText(`capacitor banks in service, ${BANKS_IN_SERVICE_BASIS} (each board's own kvar includes its bank): ${banks}`, '  ', '    ')];
 }
 
 export interface InstallationReportOptions {

@@ -4,6 +4,8 @@ import type { SolveOptions } from '../network/solveOptions.js';
 import { feedingOrder } from '../network/installationCircuit.js';
 import { ratedKvarInService } from '../network/installationModel.js';
 import { analyseSolution } from './analyseSolution.js';
+import { bankLeadsWarning } from './boardWarnings.js';
+import { labelIn } from '../board/conventions/phaseNames.js';
 import { studyOpenNeutral } from './studyOpenNeutral.js';
 import type { BoardResult } from './boardResult.js';
 import type { BankInService } from '../board/boardModel.js';
@@ -22,6 +24,12 @@ export function analyseInstallation(solution: InstallationSolution, options: Ana
     const r = analyseSolution(s);
     return wantOpen ? { ...r, openNeutral: studyOpenNeutral(s.board, options) } : r;
   });
+  // A board whose own bank in service makes its incomer lead says so among its warnings.
+  for (const bank of installation.banksInService ?? []) {
+    const r = results[bank.boardIndex]!;
+    const leads = bankLeadsWarning(r.phases, (t) => labelIn(r.conventions.phaseNames, t));
+    if (leads) results[bank.boardIndex] = { ...r, warnings: [...r.warnings, leads] };
+  }
   const nameOf = (b: number) => solution.boards[b]!.board.name;
   const parentOf = (b: number) => (b === 0 ? null : installation.subBoards[b - 1]!.fedFrom);
   const feederOf = (b: number): FeederReading => {

@@ -182,6 +182,22 @@ function breakerRule(region: Region, continuous: boolean): { share: number; word
   };
 }
 
+/**
+ * A board whose incomer leads with the file's capacitor bank on it in service: more capacitance than
+ * its loads take at these loads. Null when no line leads.
+ */
+export function bankLeadsWarning(phases: readonly PhaseReading[], label: (phase: string) => string): BoardWarning | null {
+  const led = phases.filter((p) => p.sense === 'leading');
+  if (!led.length) return null;
+  const lowest = Math.min(...led.map((p) => p.pf ?? 1));
+  return {
+    code: 'bank-in-service-leads',
+    message: `its capacitor bank in service (harmonics.banks) makes its incomer lead: line${led.length === 1 ? '' : 's'} ${led.map((p) => label(p.phase)).join(', ')}, PF down to ${lowest.toFixed(3)} leading; more capacitance than its loads take at these loads, so a controller would hold steps out (stepsInService says which steps are in)`,
+    value: lowest,
+    threshold: 1,
+  };
+}
+
 export const GENERAL_CAUTION =
   'trivar reports what the model you entered predicts. Confirm with measurements, and have any change to the installation designed to local codes and checked by a licensed professional.';
 
