@@ -129,16 +129,19 @@ describe('solve: the banks the file lists are in service', () => {
     expect(bank.deliveredKvar).toBeLessThan(16.53);
   });
 
-  it('warns on a board its bank makes lead at its incomer, with the lowest PF, and not on one it leaves lagging', () => {
-    const small = solveInstallation(boatyard([paintShedBank])).boards[1]!.result;
-    expect(small.warnings.map((w) => w.code)).not.toContain('bank-in-service-leads');
-    expect(small.phases.every((p) => p.sense === 'lagging')).toBe(true);
-    const big = solveInstallation(boatyard([{ ...paintShedBank, stepsKvar: [30, 30] }])).boards[1]!.result;
-    const warning = big.warnings.find((w) => w.code === 'bank-in-service-leads')!;
-    // 60 kvar at 440 V delivers about 49 kvar at 400 V against 28.9 kvar of lagging loads: every line leads.
-    expect(big.phases.every((p) => p.sense === 'leading')).toBe(true);
-    expect(warning.value).toBe(Math.min(...big.phases.map((p) => p.pf!)));
-    expect(warning.message).toContain('lines A, B, C');
+  it('warns on a board whose bank delivers more than its own circuits draw, with the kvar going back up its feeder', () => {
+    const small = solveInstallation(boatyard([paintShedBank]));
+    expect(small.boards[1]!.result.warnings.map((w) => w.code)).not.toContain('bank-in-service-exceeds-loads');
+    const big = solveInstallation(boatyard([{ ...paintShedBank, stepsKvar: [30, 30] }]));
+    const shed = big.boards[1]!.result;
+    const warning = shed.warnings.find((w) => w.code === 'bank-in-service-exceeds-loads')!;
+    // 60 kvar at 440 V delivers about 60·(400/440)² = 49.6 kvar against the loads' 28.9 kvar (both less the drop): about 20 kvar goes back.
+    const delivered = big.banksInService[0]!.deliveredKvar;
+    expect(warning.value).toBe(shed.totals.kvar);
+    expectClose(-warning.value, delivered - (shed.totals.kvar + delivered), { rel: 1e-12, abs: 1e-9 }, 'kvar back up the feeder');
+    expect(-warning.value).toBeGreaterThan(18);
+    expect(-warning.value).toBeLessThan(21);
+    expect(warning.message).toContain(`delivers ${delivered.toFixed(2)} kvar, more than the ${(shed.totals.kvar + delivered).toFixed(2)} kvar its own circuits draw`);
   });
 
   it('takes only the steps stepsInService names, and a detuned part at its effective B/(1 − p)', () => {

@@ -63,7 +63,7 @@ function leadingLines(c: Omit<InstallationCorrection | InstallationComparison, '
   const names = l.lines.map((x) => labelIn(l.phaseNames, x.phase)).join(', ');
   return [
     wrapText(
-      `! With those banks in service, line${l.lines.length === 1 ? '' : 's'} ${names} already lead${l.lines.length === 1 ? 's' : ''} at ${where} before any equipment (PF ${lowest.pf === null ? '-' : fixed(lowest.pf, 3)} leading at the lowest): the banks in service overcompensate there. Capacitors cannot raise a leading PF, and the target then asks only that no line leads more; take steps of those banks out (stepsInService in the file, or their controllers' settings) and study again.`,
+      `! With those banks in service, line${l.lines.length === 1 ? '' : 's'} ${names} already lead${l.lines.length === 1 ? 's' : ''} at ${where} before any equipment (PF ${lowest.pf === null ? '-' : fixed(lowest.pf, 3)} leading at the lowest): more capacitance is in service there than its loads take. Capacitors cannot raise a leading PF, and the target then asks only that no line leads more; take steps of those banks out (stepsInService in the file, or their controllers' settings) and study again.`,
       '',
       '  ',
     ),

@@ -4,8 +4,7 @@ import type { SolveOptions } from '../network/solveOptions.js';
 import { feedingOrder } from '../network/installationCircuit.js';
 import { ratedKvarInService } from '../network/installationModel.js';
 import { analyseSolution } from './analyseSolution.js';
-import { bankLeadsWarning } from './boardWarnings.js';
-import { labelIn } from '../board/conventions/phaseNames.js';
+import { bankOverLoadsWarning } from './boardWarnings.js';
 import { studyOpenNeutral } from './studyOpenNeutral.js';
 import type { BoardResult } from './boardResult.js';
 import type { BankInService } from '../board/boardModel.js';
@@ -24,12 +23,14 @@ export function analyseInstallation(solution: InstallationSolution, options: Ana
     const r = analyseSolution(s);
     return wantOpen ? { ...r, openNeutral: studyOpenNeutral(s.board, options) } : r;
   });
-  // A board whose own bank in service makes its incomer lead says so among its warnings.
-  for (const bank of installation.banksInService ?? []) {
+  // A board whose bank in service delivers more than its own circuits draw says so among its warnings.
+  const banks = (installation.banksInService ?? []).map((bank) => {
     const r = results[bank.boardIndex]!;
-    const leads = bankLeadsWarning(r.phases, (t) => labelIn(r.conventions.phaseNames, t));
-    if (leads) results[bank.boardIndex] = { ...r, warnings: [...r.warnings, leads] };
-  }
+    const reading = bankReading(bank, r.board.name, r);
+    const over = bankOverLoadsWarning(reading.deliveredKvar, r.totals.kvar);
+    if (over) results[bank.boardIndex] = { ...r, warnings: [...r.warnings, over] };
+    return reading;
+  });
   const nameOf = (b: number) => solution.boards[b]!.board.name;
   const parentOf = (b: number) => (b === 0 ? null : installation.subBoards[b - 1]!.fedFrom);
   const feederOf = (b: number): FeederReading => {
@@ -70,7 +71,7 @@ export function analyseInstallation(solution: InstallationSolution, options: Ana
     installation: { name: installation.name, system: main.system, boardCount: results.length },
     boards: order.map((b) => ({ name: nameOf(b), fedFrom: parentOf(b) === null ? null : nameOf(parentOf(b)!), depth: depth[b]!, result: results[b]! })),
     feeders: order.map(feederOf),
-    banksInService: (installation.banksInService ?? []).map((bank) => bankReading(bank, nameOf(bank.boardIndex), results[bank.boardIndex]!)),
+    banksInService: banks,
     totals: {
       sourceKW: results[0]!.source.kW,
       sourceKvar: results[0]!.source.kvar,

@@ -183,18 +183,18 @@ function breakerRule(region: Region, continuous: boolean): { share: number; word
 }
 
 /**
- * A board whose incomer leads with the file's capacitor bank on it in service: more capacitance than
- * its loads take at these loads. Null when no line leads.
+ * A board whose bank in service (the file's `harmonics.banks`) delivers more than its own circuits draw:
+ * the board sends capacitive kvar back up its feeder. Null when its circuits still draw lagging kvar.
+ * @param deliveredKvar what the bank's parts in service deliver as solved, kvar
+ * @param ownKvar the board's circuits with the bank, kvar (load convention, + lagging)
  */
-export function bankLeadsWarning(phases: readonly PhaseReading[], label: (phase: string) => string): BoardWarning | null {
-  const led = phases.filter((p) => p.sense === 'leading');
-  if (!led.length) return null;
-  const lowest = Math.min(...led.map((p) => p.pf ?? 1));
+export function bankOverLoadsWarning(deliveredKvar: number, ownKvar: number): BoardWarning | null {
+  if (!(ownKvar < -ROUND_OFF_MARGIN * Math.max(1, deliveredKvar))) return null;
   return {
-    code: 'bank-in-service-leads',
-    message: `its capacitor bank in service (harmonics.banks) makes its incomer lead: line${led.length === 1 ? '' : 's'} ${led.map((p) => label(p.phase)).join(', ')}, PF down to ${lowest.toFixed(3)} leading; more capacitance than its loads take at these loads, so a controller would hold steps out (stepsInService says which steps are in)`,
-    value: lowest,
-    threshold: 1,
+    code: 'bank-in-service-exceeds-loads',
+    message: `its capacitor bank in service (harmonics.banks) delivers ${fmt(deliveredKvar, 2)} kvar, more than the ${fmt(ownKvar + deliveredKvar, 2)} kvar its own circuits draw: ${fmt(-ownKvar, 2)} kvar capacitive goes back up its feeder. A controller would hold steps out at these loads (stepsInService says which steps are in)`,
+    value: ownKvar,
+    threshold: 0,
   };
 }
 

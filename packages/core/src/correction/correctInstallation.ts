@@ -51,8 +51,8 @@ export interface ReplacedBank {
 
 /**
  * Lines that already lead where the target is judged before any equipment, with the banks in service:
- * those banks overcompensate there, and a capacitor bank cannot raise a leading PF (the target then
- * asks only that no line leads more).
+ * more capacitance is in service there than the loads take, and a capacitor bank cannot raise a leading
+ * PF (the target then asks only that no line leads more).
  */
 export interface LeadingWithBanks {
   /** Where the target is judged: the equipment's board, or the metering point (`origin` or a board). */
