@@ -3,7 +3,9 @@
  * `harmonics.banks` (in service at the fundamental), on the shipped Ferrybank joinery example.
  * Figures are checked against the library's result for the same file, not against numbers written here.
  */
-import { readFileSync } from 'node:fs';
+import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { readBoardText, solveInstallation } from '@trivar/core';
 import { ROOT, runTrivar } from './runTrivar.js';
@@ -67,4 +69,21 @@ describe('trivar correct on a board of that installation', () => {
     expect(flat).toMatch(/! With those banks in service, lines A, B, C already lead at the incomer of Main board before any equipment \(PF 0\.\d{3} leading at the lowest\)/);
     expect(flat).toContain('more capacitance is in service there than its loads take. Capacitors cannot raise a leading PF');
   });
+});
+
+describe('trivar report on that installation with a correction section', () => {
+  it('heads the correction with the banks taken in service and the one replaced, as trivar correct states them', () => {
+    const dir = mkdtempSync(join(tmpdir(), 'trivar-banks-'));
+    const file = join(dir, 'ferrybank-with-correction.yaml');
+    const text = readFileSync(`${ROOT}${FILE}`, 'utf8');
+    writeFileSync(file, `${text}correction: { board: Machine shop, arrangement: delta-bank, target: { pf: 0.95, measuredAt: origin } }\n`);
+    const html = runTrivar(['report', file]);
+    expect(html.code).toBe(0);
+    const flat = html.stdout.replace(/<[^>]+>/g, ' ').replace(/&#39;|&#x27;/g, "'").replace(/\s+/g, ' ');
+    const correct = runTrivar(['correct', file]).stdout.replace(/\s+/g, ' ');
+    for (const sentence of ['Banks in service in every solve, before and after, as the file lists them under harmonics.banks', "The file's bank on Machine shop (steps 30+30+60 kvar, 440 V units) is left out: the equipment takes its place."]) {
+      expect(correct).toContain(sentence);
+      expect(flat).toContain(sentence);
+    }
+  }, 60_000);
 });

@@ -187,6 +187,8 @@ export type { HarmonicsInstallationSpec, InstallationHarmonicModel, Installation
 export { studyInstallationHarmonicsSpec, resolveInstallationHarmonics, analyseInstallationHarmonics } from './harmonics/studyInstallationHarmonics.js';
 export { withBanksInService } from './harmonics/banksInService.js';
 export { bankInServiceWords, BANKS_IN_SERVICE_BASIS } from './analysis/banksInServiceWords.js';
+export { banksPlacementWords } from './correction/banksPlacementWords.js';
+export type { BanksPlacement } from './correction/banksPlacementWords.js';
 export { installationInService } from './boardFile/installationInService.js';
 export { solveInstallationAtOrder, installationAtOrder } from './harmonics/installationAtOrder.js';
 export { createInstallationScanEvaluator } from './harmonics/scanEvaluator.js';

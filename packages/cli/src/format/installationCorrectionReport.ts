@@ -4,9 +4,7 @@
  */
 import {
   arrangementNames,
-  BANKS_IN_SERVICE_BASIS,
-  bankInServiceWords,
-  labelIn,
+  banksPlacementWords,
   meteringPointWords,
   type BeforeAfter,
   type InstallationComparison,
@@ -42,32 +40,10 @@ function placeLines(c: Omit<InstallationCorrection | InstallationComparison, 're
   ].join('\n');
 }
 
-/** The file's banks: those on other boards in service in every solve, the one on this board replaced. */
+/** The file's banks: those on other boards in service in every solve, the one on this board replaced, a point they make lead. */
 function banksLines(c: Omit<InstallationCorrection | InstallationComparison, 'report' | 'comparison'>): string[] {
-  const others = c.otherBanksInService.length
-    ? [`Banks in service in every solve, before and after, ${BANKS_IN_SERVICE_BASIS}: ${c.otherBanksInService.map((b) => bankInServiceWords(b)).join('; ')}.`]
-    : [];
-  const r = c.replacedBank;
-  const replaced = r
-    ? [`The file's bank on ${c.board} (${[...(r.fixedKvar > 0 ? [`fixed ${r.fixedKvar} kvar`] : []), `steps ${r.stepsKvar.join('+')} kvar`].join(', ')}, ${r.ratedV} V units) is left out: the equipment takes its place.`]
-    : [];
-  return [...[...others, ...replaced].map((t) => wrapText(t, '', '')), ...leadingLines(c)];
-}
-
-/** The banks in service already make the target's point lead: said, with what follows for the equipment. */
-function leadingLines(c: Omit<InstallationCorrection | InstallationComparison, 'report' | 'comparison'>): string[] {
-  const l = c.leadingWithBanks;
-  if (!l) return [];
-  const where = l.point === c.board ? `the incomer of ${c.board}` : meteringPointWords(l.point);
-  const lowest = l.lines.reduce((a, b) => ((b.pf ?? 1) < (a.pf ?? 1) ? b : a));
-  const names = l.lines.map((x) => labelIn(l.phaseNames, x.phase)).join(', ');
-  return [
-    wrapText(
-      `! With those banks in service, line${l.lines.length === 1 ? '' : 's'} ${names} already lead${l.lines.length === 1 ? 's' : ''} at ${where} before any equipment (PF ${lowest.pf === null ? '-' : fixed(lowest.pf, 3)} leading at the lowest): more capacitance is in service there than its loads take. Capacitors cannot raise a leading PF, and the target then asks only that no line leads more; take steps of those banks out (stepsInService in the file, or their controllers' settings) and study again.`,
-      '',
-      '  ',
-    ),
-  ];
+  const w = banksPlacementWords(c);
+  return [...[w.inService, w.replaced].flatMap((t) => (t ? [wrapText(t, '', '')] : [])), ...(w.leading ? [wrapText(`! ${w.leading}`, '', '  ')] : [])];
 }
 
 function boardTable(e: InstallationEffect): string {
