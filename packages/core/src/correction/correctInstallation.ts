@@ -95,7 +95,7 @@ export function installationBoardIndex(installation: Installation, name: string 
   throw new InputError([{ ...inputIssue('unknown_board', option, expected, name), message: `${option}: expected ${expected} (received ${JSON.stringify(name)})` }], 'the options do not fit the installation');
 }
 
-/** The lines the banks in service make lead where the target is judged, before any equipment; null when none. */
+/** With banks in service on other boards, the lines that lead where the target is judged before any equipment; null when none. */
 export function leadingWithBanks(placed: { board: string; otherBanksInService: readonly unknown[] }, report: CorrectionReport | null | undefined): LeadingWithBanks | null {
   if (!report || placed.otherBanksInService.length === 0) return null;
   const v = report.verification;

@@ -141,7 +141,7 @@ export function totalsSection(result: InstallationResult): ReportSection {
     ['Lowest phase voltage', `${fixed(t.lowestVoltagePercent, 1)} % of nominal, at ${t.lowestVoltageBoard}`],
   ];
   if (result.banksInService.length)
-    items.push([`Capacitor banks in service, ${BANKS_IN_SERVICE_BASIS}`, result.banksInService.map((b) => bankInServiceWords(b, b.deliveredKvar)).join('; ')]);
+    items.push(['Capacitor banks in service', `${result.banksInService.map((b) => bankInServiceWords(b, b.deliveredKvar)).join('; ')} — ${BANKS_IN_SERVICE_BASIS}`]);
   if (main.transformer) items.push(['Supply transformer loading', `${fixed(main.transformer.loadingPercent, 0)} % of ${fixed(main.transformer.ratedKVA, 0)} kVA (most loaded line)`]);
   items.push(['Warnings', warnings ? `${warnings}, listed under each board` : 'none']);
   return { id: 'totals', title: 'Installation totals', blocks: [{ kind: 'facts', items }] };
