@@ -39,7 +39,8 @@ describe('trivar correct on an installation file', () => {
     expect(r.stderr).toBe('');
     expect([0, 5]).toContain(r.code);
     expect(r.stdout).toMatch(/correction equipment on .* \(the main board\)/);
-    expect(r.stdout).toContain('Arrangements compared');
+    // Compared, or nothing to add where the banks the file lists (in service) already meet the target at the main board.
+    expect(r.stdout).toMatch(/Arrangements compared|NOTHING TO DO: the board already meets the target — every arrangement studied/);
     for (const line of r.stdout.split('\n')) expect(line.length, line).toBeLessThanOrEqual(100);
   }, 180_000);
 

@@ -67,6 +67,17 @@ describe('README', () => {
     expect(paragraphs.length).toBeGreaterThanOrEqual(2);
     for (const p of paragraphs) expect(output).toContain(p);
   }, 120_000);
+  it.each([
+    ['installation-banks-solve-excerpt', ['solve', 'examples/ferrybank-joinery.yaml']],
+    ['installation-banks-correct-excerpt', ['correct', 'examples/ferrybank-joinery.yaml', '--board', 'Machine shop', '--arrangement', 'delta-bank', '--measured-at', 'origin']],
+  ])('banks in service excerpt %s: each of its paragraphs is in the output as shown', (marker, args) => {
+    const block = readme.split(`<!-- ${marker}:start -->`)[1]!.split(`<!-- ${marker}:end -->`)[0]!;
+    const shown = block.replace(/^\s*```text\n/, '').replace(/```\s*$/, '').trimEnd();
+    const output = runTrivar(args).stdout;
+    const paragraphs = shown.split('\n\n');
+    expect(paragraphs.length).toBeGreaterThanOrEqual(2);
+    for (const p of paragraphs) expect(output).toContain(p);
+  }, 120_000);
   it('detuned correction output block matches `trivar correct examples/quayside-print-works.yaml`', () => {
     const block = readme.split('<!-- correct-detuned-output:start -->')[1]!.split('<!-- correct-detuned-output:end -->')[0]!;
     const shown = block.replace(/^\s*```text\n/, '').replace(/```\s*$/, '');

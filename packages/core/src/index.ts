@@ -37,7 +37,7 @@ export type { Board, BoardLoad, LoadBranch, Terminal, ZipFractions, PhaseId } fr
 export { normaliseBoard } from './board/normaliseBoard.js';
 
 // Installations (boards in a radial tree) and the cable library
-export type { Installation, SubBoard, SubBoardFeeder, InstallationPlace } from './board/boardModel.js';
+export type { Installation, SubBoard, SubBoardFeeder, InstallationPlace, BankInService } from './board/boardModel.js';
 export type { InstallationSpec, InstallationBoardSpec } from './boardFile/boardFileSchema.js';
 export { installationSchema } from './boardFile/boardFileSchema.js';
 export type { InstallationValidation } from './boardFile/validateInstallation.js';
@@ -47,7 +47,7 @@ export { normaliseInstallation } from './board/normaliseInstallation.js';
 export type { FeederSpec, PerPhaseConductorSpec, WindingSpec } from './board/boardSchema.js';
 export type { ConductorMaterial, ConductorSize, ConductorResistance, ConductorReactance, ConduitKind } from './board/cableLibrary.js';
 export { conductorReactance, conductorResistance, DEFAULT_CABLE_REACTANCE_OHM_PER_KM, DEFAULT_CONDUCTOR_TEMPERATURE_C } from './board/cableLibrary.js';
-export { installationOf, boardOfInstallation } from './network/installationModel.js';
+export { installationOf, boardOfInstallation, withoutBankOn } from './network/installationModel.js';
 export type { InstallationSolution, CompiledInstallation } from './network/solveNetwork.js';
 export { compileInstallation, solveCompiledInstallation, solveInstallationNetwork } from './network/solveNetwork.js';
 export type * from './analysis/installationResult.js';
@@ -128,7 +128,7 @@ export { verifyCorrection } from './correction/verifyCorrection.js';
 export { correctBoard } from './correction/correctBoard.js';
 export type { CorrectionComparison, ArrangementOutcome, ArrangementFigures } from './correction/compareCorrections.js';
 export { compareCorrections } from './correction/compareCorrections.js';
-export type { InstallationCorrection, InstallationComparison, CorrectInstallationOptions } from './correction/correctInstallation.js';
+export type { InstallationCorrection, InstallationComparison, CorrectInstallationOptions, ReplacedBank, OtherBankInService, LeadingWithBanks } from './correction/correctInstallation.js';
 export { correctInstallation, compareInstallationCorrections, installationBoardIndex } from './correction/correctInstallation.js';
 export type { InstallationEffect, BoardEffect, IncomerLineEffect, SupplyEffect } from './correction/installationEffect.js';
 export { installationEffect } from './correction/installationEffect.js';
@@ -185,6 +185,11 @@ export { studyHarmonics } from './boardFile/studyHarmonics.js';
 export { studyInstallationHarmonics } from './boardFile/studyInstallationHarmonics.js';
 export type { HarmonicsInstallationSpec, InstallationHarmonicModel, InstallationHarmonicsOptions, PlacedBank } from './harmonics/studyInstallationHarmonics.js';
 export { studyInstallationHarmonicsSpec, resolveInstallationHarmonics, analyseInstallationHarmonics } from './harmonics/studyInstallationHarmonics.js';
+export { withBanksInService } from './harmonics/banksInService.js';
+export { bankInServiceWords, BANKS_IN_SERVICE_BASIS } from './analysis/banksInServiceWords.js';
+export { banksPlacementWords } from './correction/banksPlacementWords.js';
+export type { BanksPlacement } from './correction/banksPlacementWords.js';
+export { installationInService } from './boardFile/installationInService.js';
 export { solveInstallationAtOrder, installationAtOrder } from './harmonics/installationAtOrder.js';
 export { createInstallationScanEvaluator } from './harmonics/scanEvaluator.js';
 export type { FixedInstallationInput } from './network/solveFixedInstallation.js';

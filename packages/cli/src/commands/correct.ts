@@ -1,5 +1,5 @@
 /** `trivar correct`: size, choose and verify power-factor correction for a board. */
-import { boardOfInstallation, meteringPointIssues, boardHasHarmonicData, installationHasHarmonicData, compareCorrections, compareInstallationCorrections, correctBoard, correctInstallation, InputError, installationBoardIndex, isInstallationInput, normaliseBoard, normaliseInstallation, readPlainBoardText, readWellFormedBoard, readWellFormedCorrectionBoard, type CorrectionComparison, type CorrectionReport } from '@trivar/core';
+import { boardOfInstallation, meteringPointIssues, boardHasHarmonicData, installationHasHarmonicData, compareCorrections, compareInstallationCorrections, correctBoard, correctInstallation, InputError, installationBoardIndex, installationInService, isInstallationInput, normaliseBoard, readPlainBoardText, readWellFormedBoard, readWellFormedCorrectionBoard, type CorrectionComparison, type CorrectionReport } from '@trivar/core';
 import type { CliIo } from '../io.js';
 import { writeResult } from '../writeResult.js';
 import { renderCorrectionReport } from '../format/correctionReport.js';
@@ -40,7 +40,8 @@ export function inFileSection(error: unknown): unknown {
 /** An installation file: the equipment on the board `--board` names (default: the main board), its effect on every board. */
 async function runCorrectInstallation(input: unknown, options: CorrectCommandOptions, io: CliIo): Promise<CorrectOutcome> {
   const spec = (await import('./schemaChecks.js')).parseInstallation(input);
-  const { installation } = normaliseInstallation(spec);
+  // The banks the file lists are in service; the one on the equipment's board, if any, is the study's to replace.
+  const installation = installationInService(spec);
   // Checked before the study, so the error names the option, not the file's correction section.
   installationBoardIndex(installation, options.board, '--board');
   // The file's correction.board places the equipment (--board overrides it); it is not part of the study itself.

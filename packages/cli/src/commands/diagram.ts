@@ -3,7 +3,7 @@ import {
   arrangementNames,
   isInstallationInput,
   normaliseBoard,
-  normaliseInstallation,
+  installationInService,
   parseBoard,
   parseInstallation,
   readBoardText,
@@ -92,7 +92,8 @@ function assertDrawable(study: FileCorrection, option: string): void {
 
 function drawInstallation(raw: unknown, view: DiagramView, options: DiagramCommandOptions): Drawn {
   const spec = parseInstallation(raw);
-  const { installation } = normaliseInstallation(spec);
+  // The banks the file lists in service, as trivar solve takes them.
+  const installation = installationInService(spec);
   if (view === 'one-line') {
     if (options.board !== undefined) throw new UsageError('the one-line view draws the whole installation: leave out --board, or choose --view phasors or sequence for one board');
     if (options.withCorrection) throw new UsageError('the one-line view draws the installation as solved: leave out --with-correction');

@@ -19,7 +19,7 @@ import {
   isInstallationInput,
   labellerOf,
   normaliseBoard,
-  normaliseInstallation,
+  installationInService,
   parseBoard,
   parseInstallation,
   profileSection,
@@ -137,7 +137,7 @@ async function boardDocument(raw: unknown, figures: unknown, options: ReportComm
   return { doc: buildBoardReport({ spec, result, correction, correctionComparison, harmonics, studySections, handCheck }), result };
 }
 
-const NO_CORRECTION = { correction: null, correctionComparison: null } as const;
+const NO_CORRECTION = { correction: null, correctionComparison: null, banksPlacement: null } as const;
 
 /**
  * The board file's correction study: the arrangement it names, or (none named) every arrangement
@@ -164,13 +164,14 @@ function installationCorrectionOf(spec: InstallationSpec, installation: Installa
   const harmonic = installationHasHarmonicData(spec);
   if (study.arrangement) {
     const c = harmonic ? correctInstallationWithHarmonics(spec, installation, study, placement) : correctInstallation(installation, study, placement);
-    return { correction: { board: c.board, report: c.report, effect: c.effect }, correctionComparison: null };
+    return { correction: { board: c.board, report: c.report, effect: c.effect }, correctionComparison: null, banksPlacement: c };
   }
   const c = harmonic ? compareInstallationWithHarmonics(spec, installation, study, placement) : compareInstallationCorrections(installation, study, placement);
   const chosen = c.comparison.outcomes.find((o) => o.arrangement === c.comparison.recommended)?.report;
   return {
     correction: chosen && c.effect ? { board: c.board, report: chosen, effect: c.effect } : null,
     correctionComparison: { board: c.board, comparison: c.comparison },
+    banksPlacement: c,
   };
 }
 
@@ -179,15 +180,16 @@ async function installationDocument(raw: unknown, figures: unknown, options: Rep
   // boards beyond it and the drops before it, which the hand check's effects do not separate.
   if (figures !== null) throw new UsageError(`--hand-figures: ${HAND_FIGURES_ON_INSTALLATION}`);
   const spec = parseInstallation(raw);
-  const { installation } = normaliseInstallation(spec);
+  // The banks the file lists in service, as trivar solve takes them.
+  const installation = installationInService(spec);
   const result = solveInstallationModel(installation);
   // As for a board: a collapse is stated and the report written, without the studies that refuse that state.
   const viable = collapseOf(result) === null;
-  const { correction, correctionComparison } = viable && options.correction !== false && spec.correction ? installationCorrectionOf(spec, installation, spec.correction) : NO_CORRECTION;
+  const { correction, correctionComparison, banksPlacement } = viable && options.correction !== false && spec.correction ? installationCorrectionOf(spec, installation, spec.correction) : NO_CORRECTION;
   const wantsHarmonics = spec.harmonics !== undefined || spec.boards.some((b) => b.loads.some((l) => l.spectrum !== undefined));
   const harmonics = viable && options.harmonics !== false && wantsHarmonics ? studyInstallationHarmonics(raw) : null;
   const studySections = options.profileData ? await installationProfileReportSections(spec, installation, options, io, result.boards[0]!.result.conventions.phaseNames) : [];
-  return { doc: buildInstallationReport({ spec, result, correction, correctionComparison, harmonics, studySections }), result };
+  return { doc: buildInstallationReport({ spec, result, correction, correctionComparison, banksPlacement, harmonics, studySections }), result };
 }
 
 export async function runReport(file: string, options: ReportCommandOptions, io: CliIo, footer: string): Promise<void> {

@@ -4,6 +4,7 @@
  */
 import {
   arrangementNames,
+  banksPlacementWords,
   meteringPointWords,
   type BeforeAfter,
   type InstallationComparison,
@@ -34,8 +35,15 @@ function placeLines(c: Omit<InstallationCorrection | InstallationComparison, 're
       '',
       '',
     ),
+    ...banksLines(c),
     '',
   ].join('\n');
+}
+
+/** The file's banks: those on other boards in service in every solve, the one on this board replaced, a point they make lead. */
+function banksLines(c: Omit<InstallationCorrection | InstallationComparison, 'report' | 'comparison'>): string[] {
+  const w = banksPlacementWords(c);
+  return [...[w.inService, w.replaced].flatMap((t) => (t ? [wrapText(t, '', '')] : [])), ...(w.leading ? [wrapText(`! ${w.leading}`, '', '  ')] : [])];
 }
 
 function boardTable(e: InstallationEffect): string {

@@ -1,5 +1,5 @@
 /** InstallationResult → the text report of `trivar solve` on an installation: a summary per board and per feeder. */
-import { bandWords, labelIn, type InstallationResult } from '@trivar/core';
+import { BANKS_IN_SERVICE_BASIS, bandWords, bankInServiceWords, labelIn, type InstallationResult } from '@trivar/core';
 import { fixed, renderTable, section } from './textTable.js';
 import { treeName } from './boardTree.js';
 import { renderSolveReport } from './solveReport.js';
@@ -134,6 +134,13 @@ function openNeutralSummary(r: InstallationResult): string | null {
   );
 }
 
+/** The file's banks, in service in this solve: stated, as they are part of every figure above. */
+function banksLine(r: InstallationResult): string[] {
+  if (!r.banksInService.length) return [];
+  const banks = r.banksInService.map((b) => bankInServiceWords(b, b.deliveredKvar)).join('; ');
+  return [wrapText(`capacitor banks in service, ${BANKS_IN_SERVICE_BASIS} (each board's own kvar includes its bank): ${banks}`, '  ', '    ')];
+}
+
 export interface InstallationReportOptions {
   /** Boards whose full report follows the summary. */
   readonly detailed: readonly string[];
@@ -161,6 +168,7 @@ export function renderInstallationReport(r: InstallationResult, options: Install
         `  from source ${fixed(t.sourceKW, 3)} kW  ${fixed(t.sourceKvar, 3)} kvar`,
         `  lowest phase voltage ${fixed(t.lowestVoltagePercent, 1)} % of nominal, at ${t.lowestVoltageBoard}`,
         limitsLine(r),
+        ...banksLine(r),
       ].join('\n'),
     section('Warnings') + (warnings.length ? warnings.join('\n') : '  none'),
   ];

@@ -2,10 +2,13 @@
 import type { InstallationSolution } from '../network/solveNetwork.js';
 import type { SolveOptions } from '../network/solveOptions.js';
 import { feedingOrder } from '../network/installationCircuit.js';
+import { ratedKvarInService } from '../network/installationModel.js';
 import { analyseSolution } from './analyseSolution.js';
+import { bankOverLoadsWarning } from './boardWarnings.js';
 import { studyOpenNeutral } from './studyOpenNeutral.js';
 import type { BoardResult } from './boardResult.js';
-import type { FeederReading, InstallationResult } from './installationResult.js';
+import type { BankInService } from '../board/boardModel.js';
+import type { BankInServiceReading, FeederReading, InstallationResult } from './installationResult.js';
 
 export interface AnalyseInstallationOptions extends SolveOptions {
   /** Also study a broken neutral in each board's feeder. @defaultValue the file's `studies.openNeutral` */
@@ -19,6 +22,14 @@ export function analyseInstallation(solution: InstallationSolution, options: Ana
   const results: BoardResult[] = solution.boards.map((s) => {
     const r = analyseSolution(s);
     return wantOpen ? { ...r, openNeutral: studyOpenNeutral(s.board, options) } : r;
+  });
+  // A board whose bank in service delivers more than its own circuits draw says so among its warnings.
+  const banks = (installation.banksInService ?? []).map((bank) => {
+    const r = results[bank.boardIndex]!;
+    const reading = bankReading(bank, r.board.name, r);
+    const over = bankOverLoadsWarning(reading.deliveredKvar, r.totals.kvar);
+    if (over) results[bank.boardIndex] = { ...r, warnings: [...r.warnings, over] };
+    return reading;
   });
   const nameOf = (b: number) => solution.boards[b]!.board.name;
   const parentOf = (b: number) => (b === 0 ? null : installation.subBoards[b - 1]!.fedFrom);
@@ -60,6 +71,7 @@ export function analyseInstallation(solution: InstallationSolution, options: Ana
     installation: { name: installation.name, system: main.system, boardCount: results.length },
     boards: order.map((b) => ({ name: nameOf(b), fedFrom: parentOf(b) === null ? null : nameOf(parentOf(b)!), depth: depth[b]!, result: results[b]! })),
     feeders: order.map(feederOf),
+    banksInService: banks,
     totals: {
       sourceKW: results[0]!.source.kW,
       sourceKvar: results[0]!.source.kvar,
@@ -69,5 +81,16 @@ export function analyseInstallation(solution: InstallationSolution, options: Ana
       lowestVoltagePercent: lowest.percent,
       lowestVoltageBoard: lowest.board,
     },
+  };
+}
+
+/** A bank in service as solved: its rated output in service and what its parts deliver (−Σ of their kvar). */
+function bankReading(bank: BankInService, board: string, result: BoardResult): BankInServiceReading {
+  const { boardIndex: _b, loads, ...rest } = bank;
+  return {
+    board,
+    ...rest,
+    ratedKvarInService: ratedKvarInService(bank),
+    deliveredKvar: -loads.reduce((s, k) => s + result.loads[k]!.kvar, 0),
   };
 }

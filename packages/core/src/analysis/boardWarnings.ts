@@ -185,6 +185,22 @@ function breakerRule(region: Region, continuous: boolean): { share: number; word
   };
 }
 
+/**
+ * A board whose bank in service (the file's `harmonics.banks`) delivers more than its own circuits draw:
+ * the board sends capacitive kvar back up its feeder. Null when its circuits still draw lagging kvar.
+ * @param deliveredKvar what the bank's parts in service deliver as solved, kvar
+ * @param ownKvar the board's circuits with the bank, kvar (load convention, + lagging)
+ */
+export function bankOverLoadsWarning(deliveredKvar: number, ownKvar: number): BoardWarning | null {
+  if (!(ownKvar < -ROUND_OFF_MARGIN * Math.max(1, deliveredKvar))) return null;
+  return {
+    code: 'bank-in-service-exceeds-loads',
+    message: `its capacitor bank in service (harmonics.banks) delivers ${fmt(deliveredKvar, 2)} kvar, more than the ${fmt(ownKvar + deliveredKvar, 2)} kvar its own circuits draw: ${fmt(-ownKvar, 2)} kvar capacitive goes back up its feeder. A controller would hold steps out at these loads (stepsInService says which steps are in)`,
+    value: ownKvar,
+    threshold: 0,
+  };
+}
+
 export const GENERAL_CAUTION =
   'trivar reports what the model you entered predicts. Confirm with measurements, and have any change to the installation designed to local codes and checked by a licensed professional.';
 

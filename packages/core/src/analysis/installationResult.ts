@@ -40,12 +40,34 @@ export interface InstallationBoardResult {
   readonly result: BoardResult;
 }
 
+/** A capacitor bank of the file (`harmonics.banks`) in service at the fundamental, as solved. */
+export interface BankInServiceReading {
+  /** The board it is on. */
+  readonly board: string;
+  readonly connection: 'delta' | 'star';
+  /** Rated voltage of its capacitor elements, V. */
+  readonly ratedV: number;
+  /** Three-phase output of every step at rated voltage, kvar. */
+  readonly stepsKvar: readonly number[];
+  /** Step numbers in service, from 1 (every step unless the file's `stepsInService` says otherwise). */
+  readonly stepsInService: readonly number[];
+  readonly fixedKvar: number;
+  /** Detuning reactor p, %; 0 for a plain bank. */
+  readonly detuningPercent: number;
+  /** Rated output of the parts in service (fixed part and steps in service) at rated voltage, kvar. */
+  readonly ratedKvarInService: number;
+  /** What those parts deliver at the solved voltages, kvar (capacitive +). */
+  readonly deliveredKvar: number;
+}
+
 export interface InstallationResult {
   readonly installation: { readonly name: string; readonly system: string; readonly boardCount: number };
   /** Boards in feeding order (each after the board that feeds it), main board first. */
   readonly boards: readonly InstallationBoardResult[];
   /** One per board, in the same order. */
   readonly feeders: readonly FeederReading[];
+  /** The file's capacitor banks in service at the fundamental (their parts are among their boards' loads, origin `added`); empty when none. */
+  readonly banksInService: readonly BankInServiceReading[];
   readonly totals: {
     /** Delivered by the source EMFs. */
     readonly sourceKW: number;

@@ -151,4 +151,27 @@ export interface Installation {
   readonly subBoards: readonly SubBoard[];
   /** The service cable in words when sized from the cable library. */
   readonly serviceFeederDescription?: string | null;
+  /** Capacitor banks of the file in service at the fundamental, their parts among their boards' loads; absent: none. */
+  readonly banksInService?: readonly BankInService[];
+}
+
+/**
+ * A capacitor bank listed in the file (an installation's `harmonics.banks`) taken in service at the
+ * fundamental: its parts are constant-impedance loads of its board (`origin: 'added'`).
+ */
+export interface BankInService {
+  /** 0 for the main board, i + 1 for `subBoards[i]`. */
+  readonly boardIndex: number;
+  readonly connection: 'delta' | 'star';
+  /** Rated voltage of the capacitor elements, V. */
+  readonly ratedV: number;
+  /** Three-phase output of each step at rated voltage, kvar (every step, in service or not). */
+  readonly stepsKvar: readonly number[];
+  /** Step numbers in service, from 1. */
+  readonly stepsInService: readonly number[];
+  readonly fixedKvar: number;
+  /** Detuning reactor p = X_L/X_C, %; 0 for a plain bank. */
+  readonly detuningPercent: number;
+  /** Index in the board's loads of each part in service (the fixed part first, then the steps in service). */
+  readonly loads: readonly number[];
 }

@@ -2,10 +2,14 @@ import { normaliseInstallation } from '../board/normaliseInstallation.js';
 import { solveInstallationModel, type SolveInstallationOptions } from '../analysis/solveInstallationModel.js';
 import type { InstallationResult } from '../analysis/installationResult.js';
 import { parseInstallation } from './validateInstallation.js';
+import { isInstallationInput } from '../board/installationInput.js';
+import { installationInService } from './installationInService.js';
 
 /**
  * Validates, normalises and solves an installation file given as a plain object
- * (a board file is accepted too: the installation with one board).
+ * (a board file is accepted too: the installation with one board). An installation's
+ * `harmonics.banks` are in service (`installationInService`); a board file's `harmonics.bank` is the
+ * bank `trivar correct` designs for its one board, and is left out as `solveBoard` leaves it out.
  * @throws {InputError} listing every problem, each with its path.
  * @throws {NumericalError} for a singular network or a load iteration that does not settle.
  * @example
@@ -20,5 +24,6 @@ import { parseInstallation } from './validateInstallation.js';
  * result.feeders[1].lines[0].current.magnitude //=> about 13.4 (A)
  */
 export function solveInstallation(input: unknown, options: SolveInstallationOptions = {}): InstallationResult {
-  return solveInstallationModel(normaliseInstallation(parseInstallation(input)).installation, options);
+  const spec = parseInstallation(input);
+  return solveInstallationModel(isInstallationInput(input) ? installationInService(spec) : normaliseInstallation(spec).installation, options);
 }

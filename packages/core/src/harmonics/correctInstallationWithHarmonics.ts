@@ -16,10 +16,11 @@
  * brings near an order (its own, or one of the other banks' moved by it) is.
  */
 import type { Installation } from '../board/boardModel.js';
-import { placeCorrection, measuredAt, type CorrectInstallationOptions, type InstallationCorrection, type InstallationComparison } from '../correction/correctInstallation.js';
+import { placeCorrection, measuredAt, leadingWithBanks, type CorrectInstallationOptions, type InstallationCorrection, type InstallationComparison } from '../correction/correctInstallation.js';
 import { installationEffect } from '../correction/installationEffect.js';
 import { bankOfReport, compareWithBankCheck, correctWithBankCheck, withStudyTolerance, type BankCheck, type BankChecker, type HarmonicComparison, type HarmonicCorrectionReport } from './correctWithHarmonics.js';
 import { analyseInstallationHarmonics, resolveInstallationHarmonics, type HarmonicsInstallationSpec } from './studyInstallationHarmonics.js';
+import { withBanksInService } from './banksInService.js';
 import type { BoardScan, InstallationHarmonicsReport } from './harmonicsResult.js';
 import { dutyRatio } from './capacitorDuty.js';
 import { conditionWords } from './dutyConditions.js';
@@ -118,16 +119,18 @@ export function installationBankChecker(spec: HarmonicsInstallationSpec, boardIn
  * `correctInstallation` on an installation file with harmonic data: the bank on its board checked
  * against the installation's harmonics, with detuned variants, one chosen (as `correctWithHarmonics`).
  * @param spec the validated installation file (loads' spectra, the `harmonics:` section)
- * @param installation `normaliseInstallation(spec).installation`
+ * @param installation `normaliseInstallation(spec).installation`; the file's banks on other boards are
+ *   taken in service at the fundamental (`withBanksInService`), the one on the equipment's board replaced
  * @throws {InputError} for an unknown board, a study that does not fit the board, or a `harmonics.banks` entry that does not fit
  */
 export function correctInstallationWithHarmonics(spec: HarmonicsInstallationSpec, installation: Installation, study: unknown, options?: CorrectInstallationOptions): InstallationHarmonicCorrection {
-  const { board, placed } = placeCorrection(installation, options);
   // The harmonics section is checked before the study runs (its banks' boards, one per board).
   resolveInstallationHarmonics(spec);
+  // The fundamental study sees what the harmonic check sees: the other boards' banks in service.
+  const { board, placed } = placeCorrection(withBanksInService(installation, spec.harmonics?.banks), options);
   let without: ResonanceWithoutBank | null = null;
   const report = correctWithBankCheck(board, study, spec.harmonics?.detuning, installationBankChecker(spec, placed.boardIndex, (w) => (without ??= w)), WORDING);
-  return { ...placed, ...measuredAt(report), report, resonanceWithoutBank: without, effect: installationEffect(board, report.verification.equipment) };
+  return { ...placed, ...measuredAt(report), report, leadingWithBanks: leadingWithBanks(placed, report), resonanceWithoutBank: without, effect: installationEffect(board, report.verification.equipment) };
 }
 
 /**
@@ -135,8 +138,8 @@ export function correctInstallationWithHarmonics(spec: HarmonicsInstallationSpec
  * bank checked with its detuned variants (as `compareWithHarmonics`), the recommended one's effect on every board.
  */
 export function compareInstallationWithHarmonics(spec: HarmonicsInstallationSpec, installation: Installation, study: unknown, options?: CorrectInstallationOptions): InstallationHarmonicComparison {
-  const { board, placed } = placeCorrection(installation, options);
   resolveInstallationHarmonics(spec);
+  const { board, placed } = placeCorrection(withBanksInService(installation, spec.harmonics?.banks), options);
   let without: ResonanceWithoutBank | null = null;
   const checker = installationBankChecker(spec, placed.boardIndex, (w) => (without ??= w));
   const comparison = compareWithBankCheck(board, study, (arrangementStudy) => correctWithBankCheck(board, arrangementStudy, spec.harmonics?.detuning, checker, WORDING));
@@ -146,6 +149,7 @@ export function compareInstallationWithHarmonics(spec: HarmonicsInstallationSpec
     ...placed,
     ...(studied ? measuredAt(studied) : {}),
     comparison,
+    leadingWithBanks: leadingWithBanks(placed, studied),
     resonanceWithoutBank: without,
     effect: chosen ? installationEffect(board, chosen.verification.equipment) : null,
   };

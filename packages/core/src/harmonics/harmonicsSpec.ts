@@ -127,7 +127,16 @@ export const harmonicsSectionSchema = z
 
 /** A bank on one board of an installation: the installed bank's fields and the board it is on. */
 export const installationBankSchema = installedBankSchema
-  .extend({ board: z.string().min(1).describe('the name of the board the bank is on') })
+  .extend({
+    board: z.string().min(1).describe('the name of the board the bank is on'),
+    stepsInService: z
+      .array(z.number().int().min(1).max(12))
+      .max(12)
+      .optional()
+      .describe(
+        'the steps in service at the fundamental (trivar solve, and trivar correct for equipment on another board), numbered from 1; default every step; [] for the fixed part only. trivar harmonics switches every step whatever this says',
+      ),
+  })
   .describe('a capacitor bank on one board of the installation; the scan switches its steps');
 
 /** An installation file's `harmonics:` section: the board file's, with banks on named boards instead of one bank. */

@@ -8,14 +8,14 @@
  * in the path, and its duty. A board file is the installation with one board,
  * and gives the figures `studyBoardHarmonics` gives.
  */
-import type { Board, BoardLoad, Installation } from '../board/boardModel.js';
+import type { Board, Installation } from '../board/boardModel.js';
 import type { InstallationBaseSpec } from '../board/installationSchema.js';
 import { normaliseInstallation } from '../board/normaliseInstallation.js';
 import { conventionsOf } from '../board/conventions/boardConventions.js';
 import { labelIn } from '../board/conventions/phaseNames.js';
 import { regionWords } from '../board/conventions/regionWords.js';
-import { InputError, inputIssue, type InputIssue } from '../errors.js';
-import { boardOfInstallation, installationOf } from '../network/installationModel.js';
+import { boardOfInstallation, installationOf, withBoardLoads } from '../network/installationModel.js';
+import { bankBoardsOf } from './banksInService.js';
 import { solveInstallationNetwork, type InstallationSolution, type SolveOptions } from '../network/solveNetwork.js';
 import { assertViableSolutions } from '../analysis/viableOperatingPoint.js';
 import { addInstalledBank, ordersPresent, resolveHarmonicModel, type BankModel, type HarmonicModel } from './harmonicModel.js';
@@ -49,32 +49,7 @@ export type HarmonicsInstallationSpec = Omit<InstallationBaseSpec, 'boards'> & {
   harmonics?: InstallationHarmonicsSectionSpec | undefined;
 };
 
-/** The installation with board `b`'s loads replaced. */
-function withBoardLoads(installation: Installation, b: number, loads: readonly BoardLoad[]): Installation {
-  if (b === 0) return { ...installation, main: { ...installation.main, loads } };
-  return { ...installation, subBoards: installation.subBoards.map((sb, i) => (i + 1 === b ? { ...sb, loads } : sb)) };
-}
-
 const boardNames = (installation: Installation) => [installation.main.name, ...installation.subBoards.map((sb) => sb.name)];
-
-/** Each bank names a board of the installation, at most one bank per board, on a three-phase supply. */
-function checkBanks(section: InstallationHarmonicsSectionSpec, installation: Installation): number[] {
-  const names = boardNames(installation);
-  const issues: InputIssue[] = [];
-  const boardOf: number[] = [];
-  const seen = new Map<number, number>();
-  (section.banks ?? []).forEach((bank, i) => {
-    const path = `harmonics.banks[${i}]`;
-    const b = names.indexOf(bank.board);
-    boardOf.push(b);
-    if (b < 0) issues.push(inputIssue('unknown_board', `${path}.board`, `the name of a board in this installation: ${names.map((n) => JSON.stringify(n)).join(', ')}`, bank.board));
-    else if (seen.has(b)) issues.push(inputIssue('duplicate', `${path}.board`, `one bank per board (harmonics.banks[${seen.get(b)}] is already on "${bank.board}")`, bank.board));
-    else seen.set(b, i);
-    if (installation.main.phases.length !== 3) issues.push(inputIssue('not_applicable', path, 'a bank on a three-phase installation (its steps are three-phase)', installation.main.system));
-  });
-  if (issues.length) throw new InputError(issues, 'the harmonic study does not fit the installation');
-  return boardOf;
-}
 
 /** Every order any board's loads inject or the supply carries, ascending. */
 function ordersOf(models: readonly HarmonicModel[]): number[] {
@@ -202,7 +177,7 @@ export interface PlacedBank {
 export function resolveInstallationHarmonics(spec: HarmonicsInstallationSpec, placed?: PlacedBank): InstallationHarmonicModel {
   const { installation: plain, boardNumber } = normaliseInstallation(spec);
   const section = spec.harmonics ?? {};
-  const fileBankBoards = checkBanks(section, plain);
+  const fileBankBoards = bankBoardsOf(section.banks, plain);
   const count = plain.subBoards.length + 1;
   let installation = plain;
   const bankModels: (BankModel | null)[] = new Array(count).fill(null);

@@ -7,7 +7,7 @@
  * the whole installation.
  */
 import { add, scale, ZERO, type ComplexValue } from '../complex.js';
-import type { Board, Installation } from '../board/boardModel.js';
+import type { BankInService, Board, BoardLoad, Installation } from '../board/boardModel.js';
 import { conventionsOf } from '../board/conventions/boardConventions.js';
 
 const mean = (zs: readonly ComplexValue[]) => scale(zs.reduce(add, ZERO), 1 / Math.max(zs.length, 1));
@@ -61,6 +61,28 @@ export function boardOfInstallation(installation: Installation, index: number): 
     ...(sb.voltageLimits ? { conventions: { ...conventionsOf(main), voltageLimits: sb.voltageLimits } } : {}),
     installation: place!,
   };
+}
+
+/** The installation with board `b`'s loads replaced (0 = the main board). */
+export function withBoardLoads(installation: Installation, b: number, loads: readonly BoardLoad[]): Installation {
+  if (b === 0) return { ...installation, main: { ...installation.main, loads } };
+  return { ...installation, subBoards: installation.subBoards.map((sb, i) => (i + 1 === b ? { ...sb, loads } : sb)) };
+}
+
+/** Rated output of a bank's parts in service (fixed part and steps in service) at rated voltage, kvar. */
+export const ratedKvarInService = (bank: BankInService): number => bank.fixedKvar + bank.stepsInService.reduce((s, k) => s + bank.stepsKvar[k - 1]!, 0);
+
+/**
+ * The installation without the file's bank in service on board `b` (its parts taken off that board),
+ * the other banks still in: what a correction study on that board starts from, its equipment taking
+ * that bank's place.
+ */
+export function withoutBankOn(installation: Installation, b: number): Installation {
+  const record = installation.banksInService?.find((r) => r.boardIndex === b);
+  if (!record) return installation;
+  const parts = new Set(record.loads);
+  const loads = boardOfInstallation(installation, b).loads.filter((_, k) => !parts.has(k));
+  return { ...withBoardLoads(installation, b, loads), banksInService: installation.banksInService!.filter((r) => r !== record) };
 }
 
 /**

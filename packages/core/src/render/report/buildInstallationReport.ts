@@ -13,11 +13,12 @@ import type { InstallationEffect } from '../../correction/installationEffect.js'
 import type { InstallationHarmonicsReport } from '../../harmonics/harmonicsResult.js';
 import { installationCorrectionSection } from './installationCorrectionSection.js';
 import { installationHarmonicsSections } from './installationHarmonicsSections.js';
-import type { ReportDocument, ReportSection } from './reportDocument.js';
+import type { ReportBlock, ReportDocument, ReportSection } from './reportDocument.js';
 import { boardSection, boardSectionIds, feedersSection, installationDescription, totalsSection } from './installationSections.js';
 import { closingSections, placeSection } from './buildBoardReport.js';
 import { correctionSection, nothingToAdd, resonanceSection } from './correctionSection.js';
 import { openNeutralSection } from './boardSections.js';
+import { banksPlacementWords, type BanksPlacement } from '../../correction/banksPlacementWords.js';
 import { INSTALLATION_ASSUMPTIONS } from './reportWording.js';
 
 export interface InstallationReportInput {
@@ -32,6 +33,11 @@ export interface InstallationReportInput {
    * (`compareInstallationCorrections`; `correction` is then the recommended one's, if any). @defaultValue none
    */
   readonly correctionComparison?: { readonly board: string; readonly comparison: CorrectionComparison } | null;
+  /**
+   * The file's banks around that study (`correctInstallation`'s `otherBanksInService`, `replacedBank`,
+   * `leadingWithBanks`): stated at the head of its section. @defaultValue none
+   */
+  readonly banksPlacement?: BanksPlacement | null;
   /**
    * The installation's harmonic study (`studyInstallationHarmonics`), if one ran: an overview and a
    * section per board; the overview replaces a correction study's resonance estimate. @defaultValue none
@@ -52,6 +58,15 @@ const atBoard = (section: ReportSection, board: string): ReportSection => ({ ...
  * const doc = buildInstallationReport({ spec, result: solveInstallation(spec) });
  * doc.sections.slice(0, 3).map((s) => s.id) //=> ['installation', 'feeders', 'totals']
  */
+/** A correction section headed by what the study took of the file's banks. */
+function withBanksPlacement(placement: BanksPlacement | null): (section: ReportSection) => ReportSection {
+  if (!placement) return (section) => section;
+  const w = banksPlacementWords(placement);
+  const text = [w.inService, w.replaced].filter((t): t is string => t !== null).join(' ');
+  const head: ReportBlock[] = [...(text ? [{ kind: 'paragraph' as const, text }] : []), ...(w.leading ? [{ kind: 'list' as const, items: [w.leading], tone: 'warning' as const }] : [])];
+  return (section) => ({ ...section, blocks: [...head, ...section.blocks] });
+}
+
 export function buildInstallationReport(input: InstallationReportInput): ReportDocument {
   const { spec, result } = input;
   const ids = boardSectionIds(result.boards.map((b) => b.name));
@@ -64,13 +79,14 @@ export function buildInstallationReport(input: InstallationReportInput): ReportD
   const correction = input.correction ?? null;
   const compared = input.correctionComparison ?? null;
   const idle = nothingToAdd(correction?.report ?? null, compared?.comparison ?? null);
+  const banks = withBanksPlacement(input.banksPlacement ?? null);
   if (correction) {
-    sections.push(atBoard(correctionSection(correction.report, compared?.comparison ?? null), correction.board));
+    sections.push(banks(atBoard(correctionSection(correction.report, compared?.comparison ?? null), correction.board)));
     const resonance = idle ? null : resonanceSection(correction.report);
     if (resonance) sections.push(atBoard(resonance, correction.board));
     // Nothing added: every board's before → after would read "x → x".
     if (!idle) sections.push(installationCorrectionSection(correction.effect));
-  } else if (compared) sections.push(atBoard(correctionComparisonSection(compared.comparison, input.result.installation.system), compared.board));
+  } else if (compared) sections.push(banks(atBoard(correctionComparisonSection(compared.comparison, input.result.installation.system), compared.board)));
   const harmonics = input.harmonics ?? null;
   if (harmonics) {
     // The overview takes the place of a resonance estimate; the boards' sections follow it.

@@ -6,8 +6,14 @@
 import type { InstallationEffect } from '../../correction/installationEffect.js';
 import type { BeforeAfter } from '../../correction/correctionResult.js';
 import { fixed } from '../svgText.js';
+import { BANKS_IN_SERVICE_BASIS, bankInServiceWords } from '../../analysis/banksInServiceWords.js';
 import type { ReportColumn, ReportSection } from './reportDocument.js';
 
+/** The banks in service on other boards, in both solves. */
+const banksInService = (effect: InstallationEffect): string =>
+  effect.before.banksInService.length
+    ? ` Banks in service in both, ${BANKS_IN_SERVICE_BASIS}: ${effect.before.banksInService.map((b) => bankInServiceWords(b)).join('; ')}.`
+    : '';
 const num = (label: string): ReportColumn => ({ label, align: 'right' });
 const change = (x: BeforeAfter, digits: number, unit = ''): string => `${fixed(x.before, digits)} → ${fixed(x.after, digits)}${unit}`;
 
@@ -26,7 +32,7 @@ export function installationCorrectionSection(effect: InstallationEffect): Repor
     blocks: [
       {
         kind: 'paragraph',
-        text: `The whole installation solved without and with the equipment on ${effect.board}: each board's incomer carries that board and every board beyond it, so boards between the equipment and the supply see its effect too.`,
+        text: `The whole installation solved without and with the equipment on ${effect.board}: each board's incomer carries that board and every board beyond it, so boards between the equipment and the supply see its effect too.${banksInService(effect)}`,
       },
       {
         kind: 'table',

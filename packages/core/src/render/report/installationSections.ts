@@ -3,6 +3,7 @@
  * drawing, the feeders, the totals, and one section per board (schedule,
  * results, voltages against limits, phasors).
  */
+import { BANKS_IN_SERVICE_BASIS, bankInServiceWords } from '../../analysis/banksInServiceWords.js';
 import type { InstallationBaseSpec } from '../../board/installationSchema.js';
 import type { InstallationBoardResult, InstallationResult } from '../../analysis/installationResult.js';
 import { boardSpecOf } from '../../board/installationRules.js';
@@ -139,6 +140,8 @@ export function totalsSection(result: InstallationResult): ReportSection {
     ['Power factor at the source, kW / |kVA|', sourceKVA > 0 ? fixed(t.sourceKW / sourceKVA, 3) : '—'],
     ['Lowest phase voltage', `${fixed(t.lowestVoltagePercent, 1)} % of nominal, at ${t.lowestVoltageBoard}`],
   ];
+  if (result.banksInService.length)
+    items.push(['Capacitor banks in service', `${result.banksInService.map((b) => bankInServiceWords(b, b.deliveredKvar)).join('; ')} — ${BANKS_IN_SERVICE_BASIS}`]);
   if (main.transformer) items.push(['Supply transformer loading', `${fixed(main.transformer.loadingPercent, 0)} % of ${fixed(main.transformer.ratedKVA, 0)} kVA (most loaded line)`]);
   items.push(['Warnings', warnings ? `${warnings}, listed under each board` : 'none']);
   return { id: 'totals', title: 'Installation totals', blocks: [{ kind: 'facts', items }] };

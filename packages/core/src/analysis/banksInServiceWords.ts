@@ -1,0 +1,22 @@
+/** How the file's capacitor banks in service at the fundamental are named in reports (solve, correct, HTML). */
+import type { BankInServiceReading } from './installationResult.js';
+
+/** The state assumed, in one clause: which banks, which steps. */
+export const BANKS_IN_SERVICE_BASIS = 'as the file lists them under harmonics.banks, every step on unless the entry’s stepsInService names the steps';
+
+const kvar = (x: number) => (Number.isInteger(x) ? String(x) : x.toFixed(2));
+
+/**
+ * "Finishing shop 50 kvar rated (every step: 25+25 kvar; 440 V units)", with what it delivers when given.
+ * @example
+ * bankInServiceWords({ board: 'Paint shed', connection: 'delta', ratedV: 440, stepsKvar: [10, 10], stepsInService: [2], fixedKvar: 0, detuningPercent: 0, ratedKvarInService: 10 })
+ * //=> 'Paint shed 10 kvar rated (step 2 of 10+10 kvar; 440 V units)'
+ */
+export function bankInServiceWords(b: Omit<BankInServiceReading, 'deliveredKvar'>, deliveredKvar?: number): string {
+  const all = b.stepsKvar.map(kvar).join('+');
+  const n = b.stepsInService.length;
+  const steps = n === b.stepsKvar.length ? `every step: ${all} kvar` : n ? `step${n === 1 ? '' : 's'} ${b.stepsInService.join('+')} of ${all} kvar` : `no step of ${all} kvar`;
+  const parts = [b.fixedKvar > 0 ? `fixed ${kvar(b.fixedKvar)} kvar, ${steps}` : steps, `${kvar(b.ratedV)} V units`, ...(b.detuningPercent > 0 ? [`detuned ${kvar(b.detuningPercent)} %`] : [])];
+  const delivered = deliveredKvar === undefined ? '' : `, ${deliveredKvar.toFixed(2)} kvar delivered`;
+  return `${b.board} ${kvar(b.ratedKvarInService)} kvar rated (${parts.join('; ')})${delivered}`;
+}
