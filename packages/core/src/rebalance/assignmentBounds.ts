@@ -217,14 +217,32 @@ export function magnitudeBoundsWithMoveLimit(p: AssignmentProblem, moveLimit: nu
   for (let i = 0; i < n; i++) if (p.home[i]! < 0) forced++;
   const free = Math.max(0, Math.min(n, moveLimit) - forced);
   const savings = new Float64Array(n);
+  // Per quantity, the circuits that change it: on an installation a circuit reaches only the incomers
+  // on its path to the supply. One that adds nothing to quantity j in any option adds nothing to its
+  // bound either (a saving of 0, and savings are never negative), so leaving it out changes no figure.
+  const reaching: Int32Array[] = [];
+  for (let j = 0; j < q; j++) {
+    const list: number[] = [];
+    for (let i = 0; i < n; i++)
+      for (let k = 0; k < p.optionCounts[i]!; k++) {
+        const at = contributionOffset(p, i, k) + 2 * j;
+        if (contributions[at] !== 0 || contributions[at + 1] !== 0) {
+          list.push(i);
+          break;
+        }
+      }
+    reaching.push(Int32Array.from(list));
+  }
   for (let j = 0; j < q; j++) {
     let best = 0;
+    const circuits = reaching[j]!;
     for (let d = 0; d < dirs.count; d++) {
       const c = dirs.cos[d]!;
       const s = dirs.sin[d]!;
       let value = c * p.base[2 * j]! + s * p.base[2 * j + 1]!;
       let m = 0;
-      for (let i = 0; i < n; i++) {
+      for (let r = 0; r < circuits.length; r++) {
+        const i = circuits[r]!;
         let least = Infinity;
         let stay = 0;
         const h = p.home[i]!;

@@ -136,6 +136,26 @@ interface Search {
   readonly termBound: ((bounds: Float64Array) => number) | null;
 }
 
+/** Move counts the table answers one by one before it steps. */
+const TABLE_EVERY_MOVE_UP_TO = 20;
+/** Ratio between the counts the table lists past that. */
+const TABLE_STEP = 1.25;
+
+/**
+ * The move limits the table answers: every one from the forced moves up to 20 more, then each about
+ * a quarter more than the last, and the whole limit. Every row is a full search: one per move up to
+ * a limit of 277 moves (an installation of 500 circuits) took 85 s and gave a table no one reads.
+ */
+export function tableMoveCounts(forced: number, limit: number): number[] {
+  const counts: number[] = [];
+  for (let m = forced; m <= limit; ) {
+    counts.push(m);
+    m = m < forced + TABLE_EVERY_MOVE_UP_TO ? m + 1 : Math.max(m + 1, Math.ceil(m * TABLE_STEP));
+  }
+  if (counts.at(-1) !== limit) counts.push(limit);
+  return counts;
+}
+
 function answerWithin({ p, single, termBound }: Search, limit: number, o: ResolvedOptions, tie: number, hints: readonly ScoredChoice[]): Answer {
   const n = p.circuitCount;
   const starts = [homeChoice(p)];
@@ -304,22 +324,51 @@ export function rebalanceInstallation(installation: Installation, study: unknown
   let table: MoveTableRow[] | null = null;
   const wantTable = o.moveTable || resolved.nearBestPercent !== null;
   if (wantTable) {
-    table = [];
-    let previous: Answer | null = null;
-    for (let m = forced; m <= limit; m++) {
-      let row: Answer = m === limit ? main : answerWithin(search, m, o, tie, previous ? [main.best, previous.best] : [main.best]);
+    const rows: { moves: number; answer: Answer }[] = [];
+    const rowOf = (m: number, previous: Answer | null): Answer => {
+      const row: Answer = m === limit ? main : answerWithin(search, m, o, tie, previous ? [main.best, previous.best] : [main.best]);
       // An answer with fewer moves is allowed with more: rows never get worse.
-      if (previous && previous.best.score <= row.best.score - tie && previous.best.excess <= tie) row = { ...row, best: previous.best };
-      table.push({ moves: m, score: row.best.score, lowerBound: row.lowerBound, proven: row.proven, movesUsed: row.best.moves, withinCapacity: row.best.excess <= tie });
+      return previous && previous.best.score <= row.best.score - tie && previous.best.excess <= tie ? { ...row, best: previous.best } : row;
+    };
+    let previous: Answer | null = null;
+    for (const m of tableMoveCounts(forced, limit)) {
+      const row = rowOf(m, previous);
+      rows.push({ moves: m, answer: row });
       previous = row;
       if (row.best.excess <= tie && row.best.score <= main.best.score + tie && row.best.moves <= main.best.moves) break;
     }
+    // A row's search can end better than the unlimited one (both are local searches): the answer given
+    // is then that row's, so the work order never scores worse than a line of the table beside it.
+    for (const { answer } of rows) {
+      const a = answer.best;
+      const c = chosen.best;
+      // Its bound is for its own (smaller) move limit: the answer keeps the whole limit's.
+      if (a.excess <= tie && (c.excess > tie || a.score < c.score - tie || (a.score <= c.score + tie && a.moves < c.moves)))
+        chosen = { ...answer, lowerBound: main.lowerBound, proven: main.lowerBound !== null && main.lowerBound >= a.score - tie };
+    }
     if (resolved.nearBestPercent !== null) {
-      const best = Math.min(main.best.score, ...table.map((r) => r.score));
+      const best = Math.min(main.best.score, ...rows.map((r) => r.answer.best.score));
       const target = best * (1 + resolved.nearBestPercent / 100) + tie;
-      const row = table.find((r) => r.score <= target && r.withinCapacity);
+      const near = (a: Answer) => a.best.score <= target && a.best.excess <= tie;
+      let at = rows.findIndex((r) => near(r.answer));
+      // Between two counts the table steps over, the fewest moves that come within the target, by bisection.
+      if (at > 0) {
+        let low = rows[at - 1]!.moves;
+        while (rows[at]!.moves - low > 1) {
+          const m = Math.floor((low + rows[at]!.moves) / 2);
+          const row = rowOf(m, rows[at - 1]!.answer);
+          if (near(row)) rows.splice(at, 0, { moves: m, answer: row });
+          else {
+            rows.splice(at, 0, { moves: m, answer: row });
+            at++;
+            low = m;
+          }
+        }
+      }
+      const row = at >= 0 ? rows[at]! : null;
       if (row && row.moves < limit) chosen = answerWithin(search, row.moves, o, tie, [main.best]);
     }
+    table = rows.map(({ moves, answer: a }) => ({ moves, score: a.best.score, lowerBound: a.lowerBound, proven: a.proven, movesUsed: a.best.moves, withinCapacity: a.best.excess <= tie }));
   }
 
   const choice = chosen.best.choice;
