@@ -202,6 +202,13 @@ describe('solve: the banks the file lists are in service', () => {
     expect(issues({ ...paintShedBank, stepsInService: [3] })).toEqual([['too_big', 'harmonics.banks[0].stepsInService[0]']]);
     expect(issues({ ...paintShedBank, stepsInService: [2, 2] })).toEqual([['duplicate', 'harmonics.banks[0].stepsInService[1]']]);
     expect(issues({ ...paintShedBank, board: 'Boat shed' })).toEqual([['unknown_board', 'harmonics.banks[0].board']]);
+    // A step number that is not whole says so in words ("a whole number", not zod's "a int").
+    try {
+      solveInstallation(boatyard([{ ...paintShedBank, stepsInService: [1.5] }]));
+      expect.unreachable();
+    } catch (error) {
+      expect((error as InputError).issues.map((i) => i.message)).toEqual(['harmonics.banks[0].stepsInService[0]: expected a whole number (received 1.5)']);
+    }
   });
 });
 

@@ -17,7 +17,7 @@ const MERGE_KEY = 'no YAML merge key: files are read as YAML 1.2, where "<<" is 
 function expectedFor(issue: core.$ZodIssue): string {
   switch (issue.code) {
     case 'invalid_type':
-      return issue.expected === 'object' ? 'an object' : issue.expected === 'array' ? 'a list' : `a ${issue.expected}`;
+      return issue.expected === 'object' ? 'an object' : issue.expected === 'array' ? 'a list' : issue.expected === 'int' ? 'a whole number' : `a ${issue.expected}`;
     case 'invalid_value':
       return `one of ${issue.values.map((v) => JSON.stringify(v)).join(', ')}`;
     case 'too_small':
