@@ -70,3 +70,18 @@ export function messageFor(error: unknown): string {
   const detail = error instanceof Error ? (error.stack ?? error.message) : String(error);
   return `internal error (a bug in trivar, please report it with the board file):\n${detail}`;
 }
+
+/**
+ * A profile some of whose intervals collapsed (a phase below 50 % of nominal: the state `trivar solve`
+ * refuses with exit 4), before or with the bank, on any board: raised after the report is written, as
+ * `trivar solve` does, so a script does not take the year's figures as sound. Null when none did.
+ */
+export function profileCollapseOf(summaries: readonly ({ readonly hoursCollapsed: number } | null | undefined)[], where: string): NumericalError | null {
+  const hours = Math.max(0, ...summaries.map((s) => s?.hoursCollapsed ?? 0));
+  if (!(hours > 0))
+    return null;
+  return new NumericalError(
+    'collapsed',
+    `the supply cannot carry the load in some intervals${where}: a phase below 50 % of nominal for ${+hours.toPrecision(4)} h (the report above says which figures that affects); trivar solve refuses the same state`,
+  );
+}

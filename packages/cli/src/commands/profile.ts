@@ -22,7 +22,7 @@ import {
   isInstallationInput,
 } from '@trivar/core';
 import type { CliIo } from '../io.js';
-import { UsageError } from '../exitCodes.js';
+import { profileCollapseOf, UsageError } from '../exitCodes.js';
 import { inFileSection } from './correct.js';
 import { boardCorrection, switchedBankOf } from './fileCorrectionStudy.js';
 import { assertNotInput, writeOutputFile } from '../outputFiles.js';
@@ -153,5 +153,7 @@ export async function runProfile(file: string, options: ProfileCommandOptions, i
     writeProfileCharts(study, (name, text) => writeOutputFile(join(options.charts!, name), text), label);
   }
   writeResult(io, study.result, options.json, (r) => renderProfileReport(r, currency, label));
+  const collapse = profileCollapseOf([study.result.before, study.result.bank?.after], '');
+  if (collapse) throw collapse;
   return study;
 }

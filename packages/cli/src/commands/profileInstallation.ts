@@ -20,7 +20,7 @@ import {
   type InstallationProfileStudy,
 } from '@trivar/core';
 import type { CliIo } from '../io.js';
-import { UsageError } from '../exitCodes.js';
+import { profileCollapseOf, UsageError } from '../exitCodes.js';
 import { writeResult } from '../writeResult.js';
 import { readCsvHeader, readIntervalRows } from '../read/intervalCsv.js';
 import { timeZoneOption } from '../read/timeZoneOption.js';
@@ -164,5 +164,8 @@ export async function runProfileInstallation(input: unknown, options: ProfileCom
     writeInstallationProfileCharts(study, (board, name, text) => writeOutputFile(board === null ? join(dir, name) : join(dir, folders.get(board)!, name), text), label);
   }
   writeResult(io, study.result, options.json, (r) => renderInstallationProfileReport(r, spec.profile?.tariff?.currency ?? 'units'));
+  const collapsed = study.result.boards.filter((b) => (b.before.hoursCollapsed > 0 || (b.after?.hoursCollapsed ?? 0) > 0));
+  const collapse = profileCollapseOf(collapsed.flatMap((b) => [b.before, b.after]), collapsed.length ? ` (${collapsed.map((b) => b.board).join(', ')})` : '');
+  if (collapse) throw collapse;
   return study;
 }
