@@ -39,7 +39,7 @@ describe('rebalance: bad studies', () => {
   it.each([
     ['a circuit pinned to a phase the supply lacks', splitPhase, { pinned: [{ circuit: 'Fridge', on: 'C-N' }] }, 'unknown_phase', 'pinned[0].on', /A-N, B-N, A-B on a split-phase supply/],
     ['a negative move limit', fourWire, { moveLimit: -1 }, 'out_of_range', 'moveLimit', /a number >= 0/],
-    ['a fractional move limit', fourWire, { moveLimit: 1.5 }, 'invalid_type', 'moveLimit', /int/],
+    ['a fractional move limit', fourWire, { moveLimit: 1.5 }, 'invalid_type', 'moveLimit', /expected a whole number/],
     ['capacity below the pinned load', fourWire, { pinned: ['Kiln'], lineCapacityA: 40 }, 'capacity_unreachable', 'lineCapacityA', /capacity of at least 49\.8 A for line A.*circuits that cannot move draw 49\.8 A/],
     ['a per-line capacity below the pinned load', fourWire, { pinned: ['Kiln'], lineCapacityA: { A: 30 } }, 'capacity_unreachable', 'lineCapacityA.A', /line A/],
     ['a capacity for a line the supply lacks', splitPhase, { lineCapacityA: { C: 30 } }, 'not_applicable', 'lineCapacityA.C', /only lines A, B/],

@@ -3,7 +3,7 @@
  * as a single board's), every feeder, and the installation's totals. Plain JSON.
  */
 import type { Phasor } from '../complex.js';
-import type { PhaseId } from '../board/boardModel.js';
+import type { BankInService, PhaseId } from '../board/boardModel.js';
 import type { BoardResult } from './boardResult.js';
 
 export interface FeederConductorReading {
@@ -40,20 +40,13 @@ export interface InstallationBoardResult {
   readonly result: BoardResult;
 }
 
-/** A capacitor bank of the file (`harmonics.banks`) in service at the fundamental, as solved. */
-export interface BankInServiceReading {
+/**
+ * A capacitor bank of the file (`harmonics.banks`) in service at the fundamental, as solved: the
+ * model's bank (its rating, steps and `stepsInService`, step numbers from 1) named by its board.
+ */
+export interface BankInServiceReading extends Omit<BankInService, 'boardIndex' | 'loads'> {
   /** The board it is on. */
   readonly board: string;
-  readonly connection: 'delta' | 'star';
-  /** Rated voltage of its capacitor elements, V. */
-  readonly ratedV: number;
-  /** Three-phase output of every step at rated voltage, kvar. */
-  readonly stepsKvar: readonly number[];
-  /** Step numbers in service, from 1 (every step unless the file's `stepsInService` says otherwise). */
-  readonly stepsInService: readonly number[];
-  readonly fixedKvar: number;
-  /** Detuning reactor p, %; 0 for a plain bank. */
-  readonly detuningPercent: number;
   /** Rated output of the parts in service (fixed part and steps in service) at rated voltage, kvar. */
   readonly ratedKvarInService: number;
   /** What those parts deliver at the solved voltages, kvar (capacitive +). */

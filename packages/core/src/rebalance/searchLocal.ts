@@ -203,6 +203,28 @@ class Walker {
     return true;
   }
 
+  /**
+   * Score + excess with circuit i at option k, the walker left as it was. On an installation only
+   * the quantities i reaches are recomputed (trimming a long answer asks this of every moved circuit
+   * for every move it undoes: two full `force`s each took 69 of 93 s on 2,000 circuits).
+   */
+  scoreWith(i: number, k: number): number {
+    if (!this.touched) {
+      const was = this.choice[i]!;
+      this.force(i, k);
+      const s = this.score + this.excess;
+      this.force(i, was);
+      return s;
+    }
+    const list = this.touched[i]!;
+    this.startTrial(list);
+    this.shift(i, this.choice[i]!, k, list);
+    this.trialMagnitudes(list);
+    const s = this.p.score(this.trialMags) + limitExcess(this.p, this.trialMags);
+    this.endTrial(list, false);
+    return s;
+  }
+
   /** Sets a circuit without asking whether it helps (kicks, trimming). */
   force(i: number, k: number): void {
     this.moves += this.moveDelta(i, k);
@@ -311,14 +333,11 @@ export function trimMoves(p: AssignmentProblem, start: Int32Array, moveLimit: nu
     for (let i = 0; i < p.circuitCount; i++) {
       const h = p.home[i]!;
       if (h < 0 || w.choice[i] === h) continue;
-      const was = w.choice[i]!;
-      w.force(i, h);
-      const s = w.score + w.excess;
+      const s = w.scoreWith(i, h);
       if (s < bestScore) {
         bestScore = s;
         bestI = i;
       }
-      w.force(i, was);
     }
     if (bestI < 0) break;
     w.force(bestI, p.home[bestI]!);
