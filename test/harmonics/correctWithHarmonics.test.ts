@@ -110,7 +110,7 @@ describe('detuned banks in the correction study', () => {
     expect(r.status).toBe('already-meets-target');
     expect(r.harmonics.variants).toEqual([]);
     expect(r.harmonics.check).toBeNull();
-    expect(r.harmonics.summary).toBe('nothing is added, so there is no bank to check against the harmonics');
+    expect(r.harmonics.summary).toBe('no capacitors are added, so there is no bank to check against the harmonics');
   });
 });
 

@@ -34,5 +34,5 @@ function leadingWords(c: BanksPlacement): string | null {
   const lowest = l.lines.reduce((a, b) => ((b.pf ?? 1) < (a.pf ?? 1) ? b : a));
   const one = l.lines.length === 1;
   const names = l.lines.map((x) => labelIn(l.phaseNames, x.phase)).join(', ');
-  return `With those banks in service, line${one ? '' : 's'} ${names} already lead${one ? 's' : ''} at ${where} before any equipment (PF ${lowest.pf === null ? '-' : lowest.pf.toFixed(3)} leading at the lowest): more capacitance is in service there than its loads take. Capacitors cannot raise a leading PF, and the target then asks only that no line leads more; take steps of those banks out (stepsInService in the file, or their controllers' settings) and study again.`;
+  return `With those banks in service, line${one ? '' : 's'} ${names} already lead${one ? 's' : ''} at ${where} before any equipment (PF ${lowest.pf === null ? '-' : lowest.pf.toFixed(3)} leading at the lowest): more capacitance is in service there than its loads take. Capacitors cannot raise a leading PF, so no capacitor bank meets the target there; take steps of those banks out (stepsInService in the file, or their controllers' settings) and study again.`;
 }

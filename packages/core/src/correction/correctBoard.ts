@@ -5,12 +5,12 @@
  * (`sizeStarBank` / `sizeDeltaBank` / `sizeBalancingCompensator`,
  * `selectBankUnits`, `verifyCorrection`).
  */
-import type { Board } from '../board/boardModel.js';
+import type { Board, PhaseId } from '../board/boardModel.js';
 import type { Arrangement, CorrectionSpec } from './correctionSpec.js';
 import { InputError, inputIssue } from '../errors.js';
 import { kvarFromSusceptance, type EquipmentGroup } from './equipment.js';
 import { parseCorrectionSpec } from './validateCorrectionSpec.js';
-import { resolveTarget } from './correctionTarget.js';
+import { resolveTarget, TARGET_SLACK, type TargetCheck } from './correctionTarget.js';
 import { checkBalance } from './balanceTarget.js';
 import { sizeStarBank } from './sizeStarBank.js';
 import { sizeDeltaBank } from './sizeDeltaBank.js';
@@ -182,6 +182,15 @@ export function correctBoard(board: Board, spec: unknown): CorrectionReport {
   } else if (!verification.tolerance.low.check.met || verification.tolerance.high.check.leadingLines.length > 0)
     status = 'meets-target-at-nominal-capacitance';
   else status = 'meets-target';
+  // "A line that already led may not lead more" is meant for the one line a line-to-line load makes
+  // lead; where every judged line led before (other banks in service, an over-sized fixed bank) and
+  // one is still short of its minimum, capacitors cannot help, and a met target would contradict the
+  // PF printed beside it.
+  const overCompensated = sizing.arrangement !== 'balancing-compensator' && (status === 'meets-target' || status === 'meets-target-at-nominal-capacitance' || status === 'already-meets-target') ? leadingShortLines(verification.check) : [];
+  if (overCompensated.length) {
+    status = 'infeasible';
+    reasons.push(infeasibleReason.alreadyLeading(overCompensated.map(label)));
+  }
 
   // Branch-level guesses of the selection give way to the re-solved verdict: a
   // branch "short of its share" does not matter when the board meets the target
@@ -219,4 +228,12 @@ export function correctBoard(board: Board, spec: unknown): CorrectionReport {
     // Nothing to install: the capacitor cautions (discharge, inrush, resonance) are for equipment being added.
     cautions: status === 'already-meets-target' ? [MODEL_CAUTION] : correctionCautions(regionWords(conventionsOf(board).region, board.system).groundWord),
   };
+}
+
+/** Lines short of their minimum PF on a board whose every judged line led before correction; empty otherwise. */
+function leadingShortLines(check: TargetCheck): PhaseId[] {
+  const judged = check.lines.filter((l) => l.loaded);
+  if (judged.length === 0 || !judged.every((l) => check.leadingBefore.includes(l.phase))) return [];
+  const minimum = (l: (typeof judged)[number]) => l.minPf ?? check.board?.minPf ?? 1;
+  return judged.filter((l) => l.pf !== null && l.pf < minimum(l) * (1 - TARGET_SLACK)).map((l) => l.phase);
 }

@@ -52,7 +52,7 @@ export interface ReplacedBank {
 /**
  * Lines that already lead where the target is judged before any equipment, with the banks in service:
  * more capacitance is in service there than the loads take, and a capacitor bank cannot raise a leading
- * PF (the target then asks only that no line leads more).
+ * PF (where every line leads below its minimum, the capacitor studies end infeasible: correctBoard.ts).
  */
 export interface LeadingWithBanks {
   /** Where the target is judged: the equipment's board, or the metering point (`origin` or a board). */

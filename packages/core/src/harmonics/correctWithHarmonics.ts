@@ -306,7 +306,7 @@ function reactorsOf(report: CorrectionReport, frequencyHz: number, p: number): C
 }
 
 /** The harmonic check's summary where the study adds nothing. */
-export const NOTHING_TO_CHECK = 'nothing is added, so there is no bank to check against the harmonics';
+export const NOTHING_TO_CHECK = 'no capacitors are added, so there is no bank to check against the harmonics';
 
 /** A third harmonic worth a 14 % reactor: above this share of the fundamental on some line (common practice, no source). */
 const SIGNIFICANT_THIRD = 0.1;
@@ -346,12 +346,19 @@ export function correctWithBankCheck<Check>(
   wording: HarmonicCheckWording,
 ): HarmonicCorrectionReport<Check> {
   const plain = variantOf(checkBank, board, correctBoard(board, study), 'plain', 0);
-  // Nothing added: no bank to scan or detune, so no variant is sized or checked (a table of
-  // zero-kvar banks that "pass" would read as a check that was made).
-  if (plain.report.status === 'already-meets-target')
+  // No capacitors built (nothing to add, a board already leading, reactors only): no bank to scan or
+  // detune, so no variant is sized or checked (a table of zero-kvar banks that "pass" would read as a
+  // check that was made).
+  if (plain.report.status === 'already-meets-target' || !plain.report.selection?.steps.length)
     return {
       ...plain.report,
-      harmonics: { summary: NOTHING_TO_CHECK, chosen: 'plain', variants: [], check: null, basis: `no bank is added, so none is scanned or sized with detuning reactors${wording.basis ? `; ${wording.basis}` : ''}` },
+      harmonics: {
+        summary: NOTHING_TO_CHECK,
+        chosen: plain.summary.passes ? 'plain' : null,
+        variants: [],
+        check: null,
+        basis: `no capacitors are added, so none are scanned or sized with detuning reactors${wording.basis ? `; ${wording.basis}` : ''}`,
+      },
     };
   const parsed = parseCorrectionSpec(study, board);
   const setting = detuning ?? 'auto';
@@ -445,7 +452,9 @@ export function compareWithBankCheck<Check>(board: Board, study: unknown, correc
     ? failingWords || checkWords
       ? `${choice.why.replace(/\.?$/, '.')}${failingWords}${checkWords}`
       : choice.why
-    : `${comparison.why.replace(/\.?$/, '.')} But no arrangement passes the harmonic check in any variant: a tuned filter or a specialist harmonic study is needed.`;
+    : checked.every((c) => !c.harmonics || c.harmonics.variants.length === 0)
+      ? comparison.why
+      : `${comparison.why.replace(/\.?$/, '.')} But no arrangement passes the harmonic check in any variant: a tuned filter or a specialist harmonic study is needed.`;
   return {
     ...comparison,
     outcomes,
