@@ -32,3 +32,31 @@ describe('solveBoard on an ideal source', () => {
     expect(r.cautions.some((c) => c.startsWith('A neutral carrying more current than a phase conductor'))).toBe(true);
   });
 });
+
+describe('a reduced neutral without a rating', () => {
+  // Invented: a shop board behind a feeder whose neutral has 4 × the line conductors' resistance
+  // (a quarter of their area), 10 kW on A and 6 kW on B, nothing on C.
+  const feeder = (neutralR: number, neutralRating?: number) => ({ line: { r: 0.02, x: 0.01 }, neutral: { r: neutralR, x: 0.01, ...(neutralRating ? { ratingA: neutralRating } : {}) } });
+  const shop = (neutralR: number, neutralRating?: number) =>
+    solveBoard({ supply, feeder: feeder(neutralR, neutralRating), loads: [{ name: 'ovens', connection: 'A-N', kW: 10 }, { name: 'lights', connection: 'B-N', kW: 6 }] });
+
+  it('heating more per metre than the heaviest phase (I²R) is warned of, below that phase current', () => {
+    const r = shop(0.08);
+    const ia = r.phases[0]!.current.magnitude;
+    const ib = r.phases[1]!.current.magnitude;
+    const n = r.neutral!.current.magnitude;
+    // The neutral carries less than line A (phasors 120° apart: |I_A + I_B| < I_A when I_B < I_A) …
+    expect(n).toBeLessThan(ia);
+    expect(n).toBeCloseTo(Math.sqrt(ia * ia + ib * ib - ia * ib), 0);
+    // … but at 4 × the resistance it heats more: I_N²·4R > I_A²·R once I_N > I_A/2.
+    const w = r.warnings.find((x) => x.code === 'neutral-reduced-heating');
+    expect(w?.threshold).toBeCloseTo(ia / 2, 9);
+    expect(w?.message).toContain(`carries ${n.toFixed(1)} A: it heats more per metre than the heaviest phase (A, ${ia.toFixed(1)} A)`);
+    expect(r.warnings.map((x) => x.code)).not.toContain('neutral-above-phase');
+  });
+
+  it('a full-size neutral, or one with its rating given, is judged by the other rules only', () => {
+    expect(shop(0.02).warnings.map((x) => x.code)).not.toContain('neutral-reduced-heating');
+    expect(shop(0.08, 63).warnings.map((x) => x.code)).not.toContain('neutral-reduced-heating');
+  });
+});

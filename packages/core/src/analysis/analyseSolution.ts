@@ -244,7 +244,8 @@ export function analyseSolution(solved: NetworkSolution): BoardResult {
   const conventions = conventionsOf(board);
   const label = (term: string) => labelIn(conventions.phaseNames, term);
   const limits = conventions.voltageLimits;
-  const warnings = boardWarnings({ belowThreshold, phases, neutral, unbalance, loads, lineRatingA: board.lineRatingA, transformer, limits, label, lineToLine, hasNeutral: board.hasNeutral, region: conventions.region });
+  const feederResistance = board.hasNeutral ? { lines: (board.lineImpedances ?? board.phases.map(() => board.lineImpedance)).map((z) => z.re), neutral: board.neutralImpedance.re } : null;
+  const warnings = boardWarnings({ belowThreshold, phases, neutral, unbalance, loads, lineRatingA: board.lineRatingA, transformer, limits, label, lineToLine, hasNeutral: board.hasNeutral, region: conventions.region, feederResistance });
   const voltageCheck = checkVoltages({ limits, phases, lineToLine, hasNeutral: board.hasNeutral, loads, label });
   const cautions = warnings.some((w) => w.code.startsWith('neutral')) ? [NEUTRAL_CAUTION, GENERAL_CAUTION] : [GENERAL_CAUTION];
   return {

@@ -59,6 +59,8 @@ export function boardWarnings(input: {
   readonly hasNeutral?: boolean;
   /** The board's region: North America judges continuous loads at 80 % of their breaker; default IEC (100 %). */
   readonly region?: Region;
+  /** Resistance of the feeder into the board, ohm: each line conductor (in the order of `phases`) and the neutral. */
+  readonly feederResistance?: { readonly lines: readonly number[]; readonly neutral: number } | null;
 }): BoardWarning[] {
   const out: BoardWarning[] = [];
   const { phases, neutral, unbalance, loads, lineRatingA } = input;
@@ -75,6 +77,29 @@ export function boardWarnings(input: {
       message: `neutral carries ${amps(neutral.current.magnitude)} A, more than the heaviest phase (${label(heaviest.phase)}, ${amps(largest)} A): no phase breaker limits it, so the neutral must be rated for this current`,
       value: neutral.current.magnitude,
       threshold: largest,
+    });
+  // A reduced neutral with no rating given: judged by heat per metre against the heaviest phase's
+  // conductor (I²R, same cable and surroundings), which that phase's breaker limits. Above it the
+  // neutral runs hotter than any protected conductor (common practice, no source). A full-size
+  // neutral reduces to the rule above.
+  const feeder = input.feederResistance;
+  const heaviestIndex = heaviest ? phases.indexOf(heaviest) : -1;
+  const rLine = feeder && heaviestIndex >= 0 ? (feeder.lines[heaviestIndex] ?? 0) : 0;
+  if (
+    heaviest &&
+    neutral &&
+    feeder &&
+    neutral.ratingA == null &&
+    rLine > 0 &&
+    feeder.neutral > rLine * (1 + ROUND_OFF_MARGIN) &&
+    neutral.current.magnitude <= largest * (1 + ROUND_OFF_MARGIN) &&
+    neutral.current.magnitude ** 2 * feeder.neutral > largest ** 2 * rLine * (1 + ROUND_OFF_MARGIN)
+  )
+    out.push({
+      code: 'neutral-reduced-heating',
+      message: `the reduced neutral (${fmt(feeder.neutral / rLine, 2)} × a line conductor's resistance) carries ${amps(neutral.current.magnitude)} A: it heats more per metre than the heaviest phase (${label(heaviest.phase)}, ${amps(largest)} A), which its breaker limits, and nothing limits it; give the neutral's ratingA to judge it`,
+      value: neutral.current.magnitude,
+      threshold: largest * Math.sqrt(rLine / feeder.neutral),
     });
   if (neutral?.ratingA != null && neutral.current.magnitude > neutral.ratingA)
     out.push({
@@ -205,7 +230,7 @@ export const GENERAL_CAUTION =
   'trivar reports what the model you entered predicts. Confirm with measurements, and have any change to the installation designed to local codes and checked by a licensed professional.';
 
 export const NEUTRAL_CAUTION =
-  'A neutral carrying more current than a phase conductor can overheat without tripping any overcurrent device (the neutral is normally unprotected). Check its size and terminations.';
+  'A neutral carrying more current than a phase conductor, or a reduced neutral carrying more than its size allows, can overheat without tripping any overcurrent device (the neutral is normally unprotected). Check its size and terminations.';
 
 /** The broken-neutral cautions in IEC wording (PEN, TN-C-S); `regionWords` gives each region's. */
 export const OPEN_NEUTRAL_CAUTIONS: readonly string[] = regionWords('iec', 'three-phase-4wire').openNeutralCautions;
