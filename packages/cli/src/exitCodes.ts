@@ -78,8 +78,7 @@ export function messageFor(error: unknown): string {
  */
 export function profileCollapseOf(summaries: readonly ({ readonly hoursCollapsed: number } | null | undefined)[], where: string): NumericalError | null {
   const hours = Math.max(0, ...summaries.map((s) => s?.hoursCollapsed ?? 0));
-  if (!(hours > 0))
-    return null;
+  if (!(hours > 0)) return null;
   return new NumericalError(
     'collapsed',
     `the supply cannot carry the load in some intervals${where}: a phase below 50 % of nominal for ${+hours.toPrecision(4)} h (the report above says which figures that affects); trivar solve refuses the same state`,

@@ -352,18 +352,12 @@ export function rebalanceInstallation(installation: Installation, study: unknown
       const near = (a: Answer) => a.best.score <= target && a.best.excess <= tie;
       let at = rows.findIndex((r) => near(r.answer));
       // Between two counts the table steps over, the fewest moves that come within the target, by bisection.
-      if (at > 0) {
-        let low = rows[at - 1]!.moves;
-        while (rows[at]!.moves - low > 1) {
-          const m = Math.floor((low + rows[at]!.moves) / 2);
-          const row = rowOf(m, rows[at - 1]!.answer);
-          if (near(row)) rows.splice(at, 0, { moves: m, answer: row });
-          else {
-            rows.splice(at, 0, { moves: m, answer: row });
-            at++;
-            low = m;
-          }
-        }
+      // Each probe goes into the table; `at` stays on the first row within the target.
+      while (at > 0 && rows[at]!.moves - rows[at - 1]!.moves > 1) {
+        const m = Math.floor((rows[at - 1]!.moves + rows[at]!.moves) / 2);
+        const row = rowOf(m, rows[at - 1]!.answer);
+        rows.splice(at, 0, { moves: m, answer: row });
+        if (!near(row)) at++;
       }
       const row = at >= 0 ? rows[at]! : null;
       if (row && row.moves < limit) chosen = answerWithin(search, row.moves, o, tie, [main.best]);
