@@ -1,5 +1,5 @@
 /** CorrectionReport → the human-readable report of `trivar correct` (fits 100 columns). */
-import { arrangementDescriptions, arrangementNames, CORRECTION_DEFAULTS, labellerOf, meteringPointWords, reactorChanges, smallBranchWords, type BankSelection, type BankStep, type BeforeAfter, type BranchSizing, type CompensatorSizing, type ControllerSettings, type CorrectionReport, type CorrectionVerification, type PhaseId, type PhaseLabeller } from '@trivar/core';
+import { arrangementDescriptions, arrangementNames, CORRECTION_DEFAULTS, labellerOf, meteringPointWords, reactorChanges, smallBranchWords, sparedBranchesWords, type BankSelection, type BankStep, type BeforeAfter, type BranchSizing, type CompensatorSizing, type ControllerSettings, type CorrectionReport, type CorrectionVerification, type FewerBranchesBuild, type PhaseId, type PhaseLabeller } from '@trivar/core';
 import { fixed, renderTable, section } from './textTable.js';
 import { headerLines } from './solveReport.js';
 import { wrapText } from './wrapText.js';
@@ -255,7 +255,30 @@ function smallBranchLines(c: CompensatorSizing, label: PhaseLabeller): string[] 
   return c.smallBranches.map((b) => wrapText(smallBranchWords({ ...b, branch: label(b.branch) }, percent), '  ', '    '));
 }
 
-function compensatorBlock(c: CompensatorSizing, ideal: CorrectionVerification | null, resizing: CorrectionReport['reactorResizing'], label: PhaseLabeller): string {
+const VERDICT_WORDS: Readonly<Record<FewerBranchesBuild['verdict'], string>> = {
+  meets: 'meets the target',
+  'meets-at-nominal': 'meets it at nominal capacitance only',
+  misses: 'misses it',
+  'no-units': 'no units fit',
+};
+
+/** The capacitor-only solution on fewer branches: which went, and whether that build or the one on every branch is built. */
+function fewerBranchLines(c: CompensatorSizing, build: FewerBranchesBuild | null, label: PhaseLabeller): string[] {
+  if (!c.fewerBranches) return [];
+  const spreadOver = c.capacitorOnly.branches.filter((b) => b.element !== 'none').length;
+  const words = sparedBranchesWords(c.fewerBranches.spared.map((b) => ({ ...b, branch: label(b.branch) })), spreadOver, CORRECTION_DEFAULTS.fewerBranchesAllowancePercent);
+  const cost = (x: number | null) => (x === null ? 'no units fit' : `cost ${fixed(x, 1)}`);
+  const choice =
+    build === null
+      ? ''
+      : build.verdict !== build.verdictOnEveryBranch
+      ? `; from units, on fewer branches the board ${VERDICT_WORDS[build.verdict]}, on every branch it ${VERDICT_WORDS[build.verdictOnEveryBranch]}: ${build.used ? 'fewer branches built' : 'every branch built'}`
+      : `; from units, ${cost(build.cost)} on fewer branches against ${cost(build.costOnEveryBranch)} on every branch: ${build.used ? 'fewer branches built' : 'every branch built'}`;
+  const table = build?.used ? ['  capacitor-only on fewer branches (built):', sizingTable(c.fewerBranches.solution.branches, label)] : [];
+  return [wrapText(words + choice, '  ', '    '), ...table];
+}
+
+function compensatorBlock(c: CompensatorSizing, ideal: CorrectionVerification | null, resizing: CorrectionReport['reactorResizing'], fewer: FewerBranchesBuild | null, label: PhaseLabeller): string {
   const res = (title: string, s: CompensatorSizing['ideal']) =>
     `${title}: |I2|/|I1| ${fixed(s.residual.negativeSequenceCurrentPercent, 2)} %, |I0|/|I1| ${fixed(s.residual.zeroSequenceCurrentPercent, 2)} %` +
     (s.residual.neutralCurrentA === null ? '' : `, neutral ${fixed(s.residual.neutralCurrentA, 2)} A`) +
@@ -271,11 +294,14 @@ function compensatorBlock(c: CompensatorSizing, ideal: CorrectionVerification | 
     indentLines(['best capacitor-only solution (least remaining unbalance and reactive error, no line made to lead):']),
     sizingTable(c.capacitorOnly.branches, label),
     indentLines([res('capacitor-only residual', c.capacitorOnly)]),
+    ...fewerBranchLines(c, fewer, label),
     indentLines([
       c.recommended === 'ideal'
         ? resizing?.used
           ? `built: the ideal solution with capacitors from units and the reactors sized again beside them (${reactorChanges(resizing.reactors.map((r) => ({ ...r, branch: label(r.branch) })))}), because capacitors alone miss the target`
           : 'built: the ideal solution (capacitors from units, reactors as sized), because capacitors alone miss the target'
+        : fewer?.used
+        ? 'built: the capacitor-only solution on fewer branches'
         : 'built: the capacitor-only solution',
     ]),
   ]
@@ -353,7 +379,7 @@ export function renderCorrectionReport(r: CorrectionReport): string {
     ...r.reasons.map((x) => wrapText(x, '  - ', '    ')),
     ...balanceLine(r).map((x) => wrapText(x, '  ', '    ')),
   ];
-  if (r.sizing.arrangement === 'balancing-compensator') parts.push(section('Compensator sizing') + compensatorBlock(r.sizing, r.idealVerification, r.reactorResizing, label));
+  if (r.sizing.arrangement === 'balancing-compensator') parts.push(section('Compensator sizing') + compensatorBlock(r.sizing, r.idealVerification, r.reactorResizing, r.fewerBranchesBuild, label));
   else {
     const shift = r.sizing.starPointShift;
     const shiftLines = shift

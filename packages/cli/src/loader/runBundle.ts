@@ -29,6 +29,12 @@ type BundleFunction = (exports: object, require: NodeJS.Require, module: { expor
 // 563 -> 727, solve of a 1,000-load board 911 -> 978, profile osier-mill day 996 -> 1143, and profile of a
 // year of 1-minute data (quay-street-flats) 24.8/25.7/21.6 -> 44.6/36.7/27.9 s: long runs lose the inlined
 // optimised code. Not a clear net win, so not kept.
+// Nor a V8 start-up snapshot (node --build-snapshot, Node 20). Tried 2026-12-04: the bundle built into a
+// snapshot, once with only its modules initialised and once after a solve and a correction had run in the
+// builder; run as `node --snapshot-blob <blob> solve …`. 15 interleaved runs, medians, bare node 23.7 ms:
+// solve of a 1,000-load board 91.1 ms here, 105.1 / 100.2 ms from the snapshots; correct hillside-workshop
+// 142.7 ms here, 160.6 / 144.6 ms. A snapshot keeps no compiled code (every function is compiled again on
+// first call), while the code cache below hands V8 the bytecode of every function the command ran.
 // Built as CommonJS (build.mjs): __dirname is dist/.
 const bundlePath = join(__dirname, 'trivar-bundle.js');
 const bytes = readFileSync(bundlePath);

@@ -18,7 +18,7 @@ import { sizeBalancingCompensator } from './sizeBalancingCompensator.js';
 import { defaultPractice, selectBankUnits } from './selectBankUnits.js';
 import { verifyCorrection, type VerifyCorrectionOptions } from './verifyCorrection.js';
 import { scaleBoardLoads } from './scaleBoardLoads.js';
-import type { BankSizing, CompensatorSizing, CorrectionReport, CorrectionStatus, CorrectionWarning, SizedEquipment } from './correctionResult.js';
+import type { BankSelection, BankSizing, BuildVerdict, CompensatorSizing, CorrectionReport, CorrectionStatus, CorrectionWarning, FewerBranchesBuild, SizedEquipment } from './correctionResult.js';
 import { arrangementNames, correctionCautions, infeasibleReason, MODEL_CAUTION, meteringWarning, reportSummary, warningText } from './correctionWording.js';
 import { definedOnly } from './_internal/optionSchemas.js';
 import { assertViableBoard } from '../analysis/viableOperatingPoint.js';
@@ -29,7 +29,7 @@ import { labellerOf, type PhaseLabeller } from '../board/conventions/phaseNames.
 import { regionWords } from '../board/conventions/regionWords.js';
 
 /** @param use `limitsOnly` for the light-load sizing, read only for its limits (see ResolvedBankOptions) */
-function sizeArrangement(board: Board, spec: CorrectionSpec & { arrangement: Arrangement }, use: { limitsOnly?: boolean } = {}): BankSizing | CompensatorSizing {
+function sizeArrangement(board: Board, spec: CorrectionSpec & { arrangement: Arrangement }, use: { limitsOnly?: boolean; heldBranches?: readonly string[] } = {}): BankSizing | CompensatorSizing {
   switch (spec.arrangement) {
     case 'star-bank':
       return sizeStarBank(board, definedOnly({ target: spec.target, starPoint: spec.starPoint, share: spec.share }), use);
@@ -45,9 +45,14 @@ function sizeArrangement(board: Board, spec: CorrectionSpec & { arrangement: Arr
           weights: spec.compensator?.weights,
           balance: spec.balance,
         }),
+        // The light-load sizing only gives limits: no search for fewer branches there.
+        { fewerBranches: !use.limitsOnly, ...(use.heldBranches ? { heldBranches: use.heldBranches } : {}) },
       );
   }
 }
+
+/** Verdicts of a build from units, best first. */
+const BUILD_VERDICT_RANK: Readonly<Record<BuildVerdict, number>> = { meets: 0, 'meets-at-nominal': 1, misses: 2, 'no-units': 3 };
 
 /** Star-point shift above this fraction of the line-to-neutral voltage is worth a warning (common practice, no source). */
 const STAR_SHIFT_WARNING = 0.1;
@@ -110,28 +115,27 @@ export function correctBoard(board: Board, spec: unknown): CorrectionReport {
   const label = labellerOf(phaseNames);
   const target = resolveTarget(parsed.target, board, parsed.arrangement);
   const sizing = sizeArrangement(board, parsed);
-  const sized = buildable(sizing);
-  const needsUnits = sizing.status !== 'already-meets-target' && sized.branches.some((b) => b.element === 'capacitor');
-  const lightSized = parsed.lightLoad && needsUnits ? buildable(sizeArrangement(scaleBoardLoads(board, parsed.lightLoad), parsed, { limitsOnly: true })) : undefined;
-  const selection = needsUnits
-    ? selectBankUnits(
-        sized,
-        definedOnly({
-          practice: parsed.practice ?? defaultPractice(board.frequencyHz),
-          catalogue: parsed.catalogue,
-          minStepKvar: parsed.bank?.minStepKvar,
-          trimSteps: parsed.bank?.trimSteps,
-          maxUnitsPerBranch: parsed.bank?.maxUnitsPerBranch,
-          controller: parsed.controller,
-          target: parsed.target,
-          capacitanceTolerance: parsed.capacitanceTolerance,
-          voltageMarginPercent: parsed.voltageMarginPercent,
-          deliveryFloorPercent: parsed.deliveryFloorPercent,
-          lightLoad: lightSized,
-          phaseNames,
-        }),
-      )
-    : null;
+  const spread = buildable(sizing);
+  const needsUnits = sizing.status !== 'already-meets-target' && spread.branches.some((b) => b.element === 'capacitor');
+  const scaled = parsed.lightLoad ? scaleBoardLoads(board, parsed.lightLoad) : null;
+  const selectUnits = (sized: SizedEquipment, heldBranches?: readonly string[]): BankSelection =>
+    selectBankUnits(
+      sized,
+      definedOnly({
+        practice: parsed.practice ?? defaultPractice(board.frequencyHz),
+        catalogue: parsed.catalogue,
+        minStepKvar: parsed.bank?.minStepKvar,
+        trimSteps: parsed.bank?.trimSteps,
+        maxUnitsPerBranch: parsed.bank?.maxUnitsPerBranch,
+        controller: parsed.controller,
+        target: parsed.target,
+        capacitanceTolerance: parsed.capacitanceTolerance,
+        voltageMarginPercent: parsed.voltageMarginPercent,
+        deliveryFloorPercent: parsed.deliveryFloorPercent,
+        lightLoad: scaled ? buildable(sizeArrangement(scaled, parsed, { limitsOnly: true, ...(heldBranches ? { heldBranches } : {}) })) : undefined,
+        phaseNames,
+      }),
+    );
   const verifyOptions = (equipment: VerifyCorrectionOptions['equipment']): VerifyCorrectionOptions =>
     definedOnly({
       equipment,
@@ -141,6 +145,36 @@ export function correctBoard(board: Board, spec: unknown): CorrectionReport {
       capacitanceTolerance: parsed.capacitanceTolerance,
       voltageRiseLimitPercent: parsed.voltageRiseLimitPercent,
     });
+  const { sized, selection, fewerBranchesBuild } = chooseBuild();
+  /**
+   * The build from units: of the sizing, or for a capacitor-only compensator that also works on fewer
+   * branches, of whichever of the two re-solves to the better verdict, then costs less (fewer branches at
+   * equal cost): units round differently on different branches, so fewer branches can cost more.
+   */
+  function chooseBuild(): { sized: SizedEquipment; selection: BankSelection | null; fewerBranchesBuild: FewerBranchesBuild | null } {
+    if (!needsUnits) return { sized: spread, selection: null, fewerBranchesBuild: null };
+    const onEvery = selectUnits(spread);
+    const fewer = sizing.arrangement === 'balancing-compensator' && sizing.recommended === 'capacitor-only' ? sizing.fewerBranches : null;
+    if (!fewer) return { sized: spread, selection: onEvery, fewerBranchesBuild: null };
+    const onFewer = selectUnits(fewer.solution, fewer.spared.map((b) => b.branch));
+    const verdictOf = (built: BankSelection): BuildVerdict => {
+      if (built.unbuildable) return 'no-units';
+      const v = verifyCorrection(board, verifyOptions(built.equipment));
+      if (!v.check.met || (sizing.arrangement === 'balancing-compensator' && !checkBalance(v.after, sizing.balance).met)) return 'misses';
+      return !v.tolerance.low.check.met || v.tolerance.high.check.leadingLines.length > 0 ? 'meets-at-nominal' : 'meets';
+    };
+    const verdict = verdictOf(onFewer);
+    const verdictOnEveryBranch = verdictOf(onEvery);
+    const rank = BUILD_VERDICT_RANK;
+    const used =
+      rank[verdict] < rank[verdictOnEveryBranch] || (verdict === verdictOnEveryBranch && verdict !== 'no-units' && onFewer.cost.value <= onEvery.cost.value);
+    const costOf = (b: BankSelection) => (b.unbuildable ? null : b.cost.value);
+    return {
+      sized: used ? fewer.solution : spread,
+      selection: used ? onFewer : onEvery,
+      fewerBranchesBuild: { used, cost: costOf(onFewer), costOnEveryBranch: costOf(onEvery), verdict, verdictOnEveryBranch },
+    };
+  }
   // Built with reactors, a compensator gets its reactors sized again beside the capacitors as built
   // (units round capacitors; the reactors were sized beside exact ones), and keeps them if that helps.
   const refit =
@@ -224,6 +258,7 @@ export function correctBoard(board: Board, spec: unknown): CorrectionReport {
     idealVerification,
     balance,
     reactorResizing: resizing,
+    fewerBranchesBuild,
     warnings,
     // Nothing to install: the capacitor cautions (discharge, inrush, resonance) are for equipment being added.
     cautions: status === 'already-meets-target' ? [MODEL_CAUTION] : correctionCautions(regionWords(conventionsOf(board).region, board.system).groundWord),

@@ -94,6 +94,12 @@ export const CORRECTION_DEFAULTS = {
    * keeps it only where a target needs it (common practice, no source).
    */
   negligibleBranchFraction: 0.01,
+  /**
+   * How far, in percent of |I1|, leaving a branch out of the capacitor-only compensator may raise |I2|/|I1|
+   * or the neutral current (the balance targets must still be met besides). A design choice (common
+   * practice, no source): within what a class-1 meter reads, far inside the default targets of 10 % and 20 %.
+   */
+  fewerBranchesAllowancePercent: 0.5,
   /** Outer iterations of the sizing loops (each re-solves the board). */
   maxIterations: 30,
   /**

@@ -163,6 +163,15 @@ export interface SmallBranch {
   };
 }
 
+/** A branch the capacitor-only programme gave a capacitor that the compensator does without (`fewerCapacitorBranches`). */
+export interface SparedBranch {
+  readonly branch: string;
+  /** Its output before it was left out, kvar at nominal voltage. */
+  readonly kvarAtNominalV: number;
+  /** The board with it and, the other branches solved again, without it. */
+  readonly effect: { readonly with: CompensatorReading; readonly without: CompensatorReading };
+}
+
 export interface CompensatorSizing {
   readonly arrangement: 'balancing-compensator';
   readonly branchesUsed: 'delta' | 'delta-and-star';
@@ -183,6 +192,13 @@ export interface CompensatorSizing {
   /** Branches of the exact ideal solution too small to build, and whether they were left out. */
   readonly smallBranches: readonly SmallBranch[];
   readonly capacitorOnly: CompensatorSolution;
+  /**
+   * The capacitor-only compensator on fewer branches: the programme spreads output over every branch that
+   * helps, and these branches can go with every target still met and the balance no more than
+   * CORRECTION_DEFAULTS.fewerBranchesAllowancePercent of |I1| worse (in the order they were left out).
+   * A correction study builds both from units and keeps the cheaper. Null when every branch is needed.
+   */
+  readonly fewerBranches: { readonly solution: CompensatorSolution; readonly spared: readonly SparedBranch[] } | null;
   readonly status: SizingStatus;
   readonly reasons: readonly string[];
   readonly warnings: readonly CorrectionWarning[];
@@ -461,6 +477,26 @@ export interface CorrectionReport {
   readonly balance: BalanceCheck | null;
   /** Balancing compensator with reactors, built from units: the reactors re-sized to the capacitors as built; null otherwise. */
   readonly reactorResizing: ReactorResizing | null;
+  /**
+   * Balancing compensator whose capacitor-only solution also works on fewer branches (`sizing.fewerBranches`):
+   * both built from units, the better verdict kept, then the lower cost (fewer branches at equal cost).
+   * Null otherwise.
+   */
+  readonly fewerBranchesBuild: FewerBranchesBuild | null;
   readonly warnings: readonly CorrectionWarning[];
   readonly cautions: readonly string[];
 }
+
+export interface FewerBranchesBuild {
+  /** True when the build on fewer branches is the one chosen. */
+  readonly used: boolean;
+  /** Cost of the build on fewer branches (as `selection.cost`); null when no units fit. */
+  readonly cost: number | null;
+  /** Cost of the build on every branch the programme used; null when no units fit. */
+  readonly costOnEveryBranch: number | null;
+  /** How each build fares when re-solved: meets across the tolerance, at nominal capacitance, misses, or no units fit. */
+  readonly verdict: BuildVerdict;
+  readonly verdictOnEveryBranch: BuildVerdict;
+}
+
+export type BuildVerdict = 'meets' | 'meets-at-nominal' | 'misses' | 'no-units';

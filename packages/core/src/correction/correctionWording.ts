@@ -5,7 +5,7 @@
 import type { PhaseLabel } from '../board/conventions/phaseNames.js';
 import type { PowerFactorSense } from '../analysis/boardResult.js';
 import type { Arrangement, TargetDefinition } from './correctionSpec.js';
-import type { SmallBranch, TargetName } from './correctionResult.js';
+import type { SmallBranch, SparedBranch, TargetName } from './correctionResult.js';
 
 interface TargetWords {
   readonly definition: TargetDefinition;
@@ -203,6 +203,21 @@ export function smallBranchWords(b: Omit<SmallBranch, 'branch'> & { branch: Phas
   return b.leftOut
     ? `the exact solution also has ${what}: left out, because ${without} every target it met is still met — ${effectFigures(b.effect)}`
     : `the exact solution has ${what}, kept: ${without} the board misses ${b.effect.missedWithout.map((t) => TARGET_WORDS[t]).join(' and ')} — ${effectFigures(b.effect)}`;
+}
+
+/**
+ * The branches the capacitor-only compensator does without, in one sentence: what the programme spread
+ * onto them and the board with them and without them (all left out, the rest solved again).
+ * @example
+ * sparedBranchesWords([{ branch: 'A-N', kvarAtNominalV: 7.17, effect }, …], 6)
+ * //=> 'fewer branches: the programme spread the output over 6 branches; A-N (7.17 kvar), … left out and the others sized again, every target still met — PF1+ 0.950 → 0.950, |I2|/|I1| 0.00 → 0.03 %'
+ */
+export function sparedBranchesWords(spared: readonly (Omit<SparedBranch, 'branch'> & { branch: PhaseLabel })[], spreadOver: number, allowancePercent: number): string {
+  const first = spared[0]!.effect.with;
+  const last = spared[spared.length - 1]!.effect.without;
+  const effect = effectFigures({ with: first, without: last, largestResizeKvar: 0, missedWithout: [] });
+  const names = spared.map((b) => `${b.branch} (${b.kvarAtNominalV.toFixed(2)} kvar)`).join(', ');
+  return `fewer branches: the programme spread the output over ${spreadOver} branches; ${names} left out and the others sized again, because without ${spared.length === 1 ? 'it' : 'them'} every target is still met and the balance is within ${f1(allowancePercent)} % of |I1| of what it was — ${effect}`;
 }
 
 export const selectionWording = {

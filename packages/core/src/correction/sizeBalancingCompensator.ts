@@ -20,10 +20,11 @@ import { checkRules, definedOnly, maxIterationsSchema, solveOptionsSchema } from
 import { parseOptions } from '../_internal/zodIssues.js';
 import { labellerOf } from '../board/conventions/phaseNames.js';
 import { createProbe, type ProbeState } from './_internal/boardProbe.js';
-import { branchSizings, lineComparisons } from './_internal/branchReadings.js';
+import { branchSizings, emptyBelowKvar, lineComparisons } from './_internal/branchReadings.js';
 import { compensatorResidual, residualBasesFor, residualWeights } from './_internal/compensatorResidual.js';
 import { solveIdealCompensator } from './_internal/idealCompensator.js';
 import { solveCapacitorOnlyCompensator } from './_internal/capacitorOnlyCompensator.js';
+import { fewerCapacitorBranches } from './_internal/fewerCapacitorBranches.js';
 import { leaveOutNegligible } from './_internal/negligibleBranches.js';
 
 export interface CompensatorOptions {
@@ -109,7 +110,18 @@ function resolveCompensatorOptions(board: Board, input: CompensatorOptions | und
  * ideal.branches.map((b) => b.kvarAtNominalV)
  * //=> [0, 5.773…, −5.773…]  (A-B, B-C capacitor, C-A reactor: P/√3 each)
  */
-export function sizeBalancingCompensator(board: Board, options?: CompensatorOptions): CompensatorSizing {
+/** A compensator solution whose weighted residual (per unit) is below this is exact. */
+const EXACT_RESIDUAL = 1e-6;
+
+/** How a correction study uses the sizing (not options a user sets). */
+export interface CompensatorUse {
+  /** Solve the capacitor-only compensator with these branches (A-B, A-N …) held at zero: the light-load sizing of a build on fewer branches. */
+  readonly heldBranches?: readonly string[];
+  /** Look for the same job on fewer branches (`fewerBranches`). @defaultValue true */
+  readonly fewerBranches?: boolean;
+}
+
+export function sizeBalancingCompensator(board: Board, options?: CompensatorOptions, use: CompensatorUse = {}): CompensatorSizing {
   const opts = resolveCompensatorOptions(board, options);
   const { target } = opts;
   const slots = [...deltaSlots(board), ...(opts.branches === 'delta-and-star' ? starSlots(board, 'neutral') : [])];
@@ -160,13 +172,23 @@ export function sizeBalancingCompensator(board: Board, options?: CompensatorOpti
   // The exact solution's negligible branches are left out here, once, so every table and the build agree.
   const idealBuilt = leaveOutNegligible(probe, ideal.state, { bases, maxIterations: opts.maxIterations, targetsMet, reading });
   const lowerTan = lineBands(target, start, 'limit').map((b) => b.low);
-  const capOnly = solveCapacitorOnlyCompensator(probe, bases, {
+  const capSettings = {
     weights,
     ridge: CORRECTION_DEFAULTS.compensatorRidge,
     lineLowerTan: lowerTan,
     maxIterations: opts.maxIterations,
     convergence: CORRECTION_DEFAULTS.convergence,
-  });
+  };
+  const held = use.heldBranches ? slots.map((s) => use.heldBranches!.includes(s.branch)) : undefined;
+  const capOnly = solveCapacitorOnlyCompensator(probe, bases, { ...capSettings, ...(held ? { heldAtZero: held } : {}) });
+  // The programme spreads output over every branch that helps; the same job on fewer branches may build
+  // cheaper. Looked for where the solution is exact on more branches than it has conditions to meet (I2,
+  // I0 and Q1 rows): there the spread is the ridge's choice among exact solutions, not a least-squares need.
+  const builtBranches = capOnly.state.kvar.filter((q) => q >= emptyBelowKvar(capOnly.state.kvar.reduce((sum, x) => sum + Math.abs(x), 0))).length;
+  const spreadByChoice = Math.sqrt(capOnly.objective) < EXACT_RESIDUAL && builtBranches > weights.length;
+  const fewer = capOnly.converged && spreadByChoice && !held && use.fewerBranches !== false
+    ? fewerCapacitorBranches(probe, bases, capSettings, capOnly, { targetsMet: (o) => targetsMet(o.state), reading: (o) => reading(o.state) })
+    : null;
   if (!capOnly.converged) warn('not-converged', compensatorWording.notConverged('capacitor-only', capOnly.iterations));
   if (capOnly.leadingConstraintsDropped) warn('leading-bound-dropped', compensatorWording.leadingDropped);
 
@@ -174,7 +196,7 @@ export function sizeBalancingCompensator(board: Board, options?: CompensatorOpti
   const leftOut = idealBuilt.small.some((b) => b.leftOut);
   const idealObjective = leftOut ? compensatorResidual(idealBuilt.state, bases).reduce((sum, r, k) => sum + weights[k]! * r * r, 0) : 0;
   const idealSolution = solution('ideal', idealBuilt.state, idealObjective, ideal.converged && !leftOut);
-  const capSolution = solution('capacitor-only', capOnly.state, capOnly.objective, Math.sqrt(capOnly.objective) < 1e-6);
+  const capSolution = solution('capacitor-only', capOnly.state, capOnly.objective, Math.sqrt(capOnly.objective) < EXACT_RESIDUAL);
   const balanceBefore = checkBalance(start.result, opts.balance);
   const balanceAfter = checkBalance(capOnly.state.result, opts.balance);
   const idealBalance = checkBalance(idealBuilt.state.result, opts.balance);
@@ -217,6 +239,7 @@ export function sizeBalancingCompensator(board: Board, options?: CompensatorOpti
     ideal: idealSolution,
     smallBranches: idealBuilt.small,
     capacitorOnly: capSolution,
+    fewerBranches: fewer && fewer.spared.length ? { solution: solution('capacitor-only', fewer.outcome.state, fewer.outcome.objective, Math.sqrt(fewer.outcome.objective) < EXACT_RESIDUAL), spared: fewer.spared } : null,
     status,
     reasons,
     warnings,

@@ -256,9 +256,12 @@ export function probeJacobian(
   state: ProbeState,
   measure: (s: ProbeState) => readonly number[],
   stepKvar: number,
+  /** Columns not probed (branches held at zero): left at zero, one solve fewer each. */
+  skip?: readonly boolean[],
 ): number[][] {
   const f0 = measure(state);
   const columns = state.kvar.map((_, i) => {
+    if (skip?.[i]) return f0.map(() => 0);
     const x = [...state.kvar];
     x[i] = x[i]! + stepKvar;
     const f1 = measure(probe.at(x));

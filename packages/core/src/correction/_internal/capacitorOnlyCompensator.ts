@@ -39,6 +39,10 @@ export interface CapacitorOnlySettings {
    * `BALANCE_POLYGON_SIDES` sides on the linearised residual. @defaultValue none
    */
   readonly balanceLimits?: { readonly negativeSequence: number; readonly zeroSequence: number | null };
+  /** Branches held at zero (left out of the compensator). @defaultValue none */
+  readonly heldAtZero?: readonly boolean[];
+  /** Where the iteration starts (a solution of the same board with more branches). @defaultValue every branch at zero */
+  readonly start?: ProbeState;
 }
 
 /** Sides of the polygon inscribed in a balance limit's circle: within cos(π/12) = 96.6 % of the radius. */
@@ -63,14 +67,15 @@ export function solveCapacitorOnlyCompensator(probe: BoardProbe, bases: Residual
   const sb = bases.powerKVA;
   const lines = settings.lineLowerTan.length;
   const measure = (s: ProbeState) => [...compensatorResidual(s, bases), ...s.lineP, ...s.lineQ];
-  let state = probe.at(new Array<number>(n).fill(0));
+  const held = settings.heldAtZero ?? new Array<boolean>(n).fill(false);
+  let state = settings.start ? probe.at(settings.start.kvar.map((q, i) => (held[i] ? 0 : q))) : probe.at(new Array<number>(n).fill(0));
   let iterations = 0;
   let converged = false;
   let dropped = false;
   let balanceDropped = false;
   while (iterations < settings.maxIterations) {
     iterations++;
-    const full = probeJacobian(probe, state, measure, 1e-4 * sb);
+    const full = probeJacobian(probe, state, measure, 1e-4 * sb, held);
     const m = full.length - 2 * lines;
     const r = compensatorResidual(state, bases);
     // Per-unit Jacobian of the residual with respect to y = kvar / S_base.
@@ -106,20 +111,32 @@ export function solveCapacitorOnlyCompensator(probe: BoardProbe, bases: Residual
       const i1 = state.sequences ? Math.hypot(state.sequences.current.positive.re, state.sequences.current.positive.im) / bases.currentA : 0;
       const circles = [{ at: 0, t: limits.negativeSequence * i1 }, ...(bases.includeZeroSequence && limits.zeroSequence !== null ? [{ at: 2, t: limits.zeroSequence * i1 }] : [])];
       for (const circle of circles) {
-        const held = circleRows(jy, offset, circle.at, circle.t);
-        balanceRows.push(...held.rows);
-        balanceBounds.push(...held.bounds);
+        const polygon = circleRows(jy, offset, circle.at, circle.t);
+        balanceRows.push(...polygon.rows);
+        balanceBounds.push(...polygon.bounds);
       }
     }
+    // Held branches are zero: their columns (and their own y ≥ 0 rows) leave the programme.
+    const free = held.flatMap((isHeld, i) => (isHeld ? [] : [i]));
+    const pick = (row: readonly number[]) => free.map((j) => row[j]!);
+    const solveFree = (cons: readonly number[][], rhs: readonly number[]): number[] | null => {
+      if (free.length === n) return solveQuadraticProgram({ h, c, rows: cons, bounds: rhs });
+      const keep = cons.flatMap((_, k) => (k < n && held[k] ? [] : [k]));
+      const x = solveQuadraticProgram({ h: free.map((i) => pick(h[i]!)), c: pick(c), rows: keep.map((k) => pick(cons[k]!)), bounds: keep.map((k) => rhs[k]!) });
+      if (!x) return null;
+      const full = new Array<number>(n).fill(0);
+      free.forEach((i, k) => (full[i] = x[k]!));
+      return full;
+    };
     let next: number[] | null = null;
     if (balanceRows.length) {
-      next = solveQuadraticProgram({ h, c, rows: [...rows, ...(dropped ? [] : boundRows), ...balanceRows], bounds: [...bounds, ...(dropped ? [] : boundValues), ...balanceBounds] });
+      next = solveFree([...rows, ...(dropped ? [] : boundRows), ...balanceRows], [...bounds, ...(dropped ? [] : boundValues), ...balanceBounds]);
       if (!next) balanceDropped = true;
     }
-    if (!next && !dropped) next = solveQuadraticProgram({ h, c, rows: [...rows, ...boundRows], bounds: [...bounds, ...boundValues] });
+    if (!next && !dropped) next = solveFree([...rows, ...boundRows], [...bounds, ...boundValues]);
     if (!next) {
       dropped = dropped || boundRows.length > 0;
-      next = solveQuadraticProgram({ h, c, rows, bounds });
+      next = solveFree(rows, bounds);
     }
     if (!next) break;
     const kvar = next.map((v) => Math.max(0, v) * sb);
