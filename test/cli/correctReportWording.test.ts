@@ -54,7 +54,7 @@ describe('correct report wording', () => {
     expect(c.why).not.toMatch(/compensator raises/);
     const text = runTrivar(['correct', 'examples/hillside-workshop.yaml']).stdout.replace(/\s+/g, ' ');
     expect(text).toContain(`Recommendation delta bank:`);
-    expect(text).toMatch(/available units; note: the recommended delta bank raises \|I2\|\/\|I1\| from 54\.5 % to 86\.2 %/);
+    expect(text).toMatch(/; note: the recommended delta bank raises \|I2\|\/\|I1\| from 54\.5 % to 86\.2 %/);
     expect(text).toContain('! the equipment makes the current unbalance worse: |I2|/|I1| rises from 54.5 % to 86.2 %');
   });
 
@@ -65,23 +65,41 @@ describe('correct report wording', () => {
   });
 
   it('a compensator whose unit-built capacitors miss beside exact reactors says why, and what re-sizing the reactors did', () => {
-    const { board } = boardOf('examples/hillside-workshop.yaml');
-    const r = correctBoard(board, { arrangement: 'balancing-compensator' });
+    // A potter's workshop (invented) with every circuit on line B: wheel, kiln controller, pug mill.
+    const board = normaliseBoard(
+      parseBoard({
+        name: 'pottery',
+        supply: { system: 'three-phase-4wire', voltage: { lineToLine: 400 }, frequencyHz: 50, transformer: { kVA: 250, impedancePercent: 4, xOverR: 3 } },
+        feeder: { line: { r: 0.02, x: 0.01 }, neutral: { r: 0.03, x: 0.01 } },
+        loads: [
+          { name: 'wheel', connection: 'B-N', kW: 2.7, pf: 0.93 },
+          { name: 'kiln controller', connection: 'B-N', kW: 4.4, pf: 0.89 },
+          { name: 'pug mill', connection: 'B-N', kW: 2, pf: 0.79 },
+        ],
+      }),
+    );
+    const r = correctBoard(board, { arrangement: 'balancing-compensator', target: { pf: 0.95 } });
     expect(r.status).toBe('misses-target-with-available-units');
+    // Rounded up did no better, so the cheaper rounding down is built.
+    expect(r.roundingBesideReactors).toMatchObject({ used: 'down', verdictDown: 'misses', verdictUp: 'misses' });
     const sized = r.sizing.arrangement === 'balancing-compensator' ? r.sizing.ideal.branches : [];
     const cap = sized.filter((b) => b.element === 'capacitor').reduce((s, b) => s + b.kvarAtAppliedV, 0);
     const reactor = sized.filter((b) => b.element === 'reactor').reduce((s, b) => s - b.kvarAtNominalV, 0);
     const built = r.selection!.deliveredKvar;
     expect(built).toBeLessThan(cap);
     expect(reactor).toBeGreaterThan(0);
-    const reason = r.reasons.find((x) => x.startsWith('beside the reactors'));
+    const reason = r.reasons.find((x) => x.startsWith('the capacitors are rounded down to their requirement beside the reactors'));
+    expect(reason).toContain('; rounded up, with the reactors sized again around them, the board misses the target too)');
     expect(reason).toContain(`${built.toFixed(2)} kvar built against ${cap.toFixed(2)} kvar sized`);
     // The reactors are sized again beside the capacitors as built; the reason gives both values and the total.
     const resized = r.reactorResizing!;
     expect(resized.used).toBe(true);
     const after = resized.reactors.reduce((s, x) => s + x.resizedKvar, 0);
     expect(reason).toContain(`${reactor.toFixed(2)} → ${after.toFixed(2)} kvar in all`);
-    for (const x of resized.reactors) expect(reason).toContain(`${x.branch} ${x.sizedKvar.toFixed(2)} → ${x.resizedKvar.toFixed(2)} kvar`);
+    // Every reactor that has an output either way is listed (0.00 → 0.00 never is).
+    for (const x of resized.reactors.filter((x) => x.sizedKvar.toFixed(2) !== '0.00' || x.resizedKvar.toFixed(2) !== '0.00'))
+      expect(reason).toContain(`${x.branch} ${x.sizedKvar.toFixed(2)} → ${x.resizedKvar.toFixed(2)} kvar`);
+    expect(reason).not.toContain('0.00 → 0.00');
     expect(reason).toContain('it still misses the target');
   });
 

@@ -19,7 +19,9 @@ import {
   checkTarget,
   correctBoard,
   CORRECTION_DEFAULTS,
+  normaliseBoard,
   normaliseInstallation,
+  parseBoard,
   parseInstallation,
   readBoardText,
   solveBoardModel,
@@ -57,17 +59,12 @@ describe('Tannery Lane offices: the balancing compensator with a negligible bran
     }
   });
 
-  it('the text report: every "branch a → b kvar" figure reads as the sizing table does, and 0 → 0 is never listed', () => {
-    const text = renderCorrectionReport(report);
-    const table = text.split('ideal solution (may need reactors), re-solved:')[1]!.split('ideal residual')[0]!;
-    const tableKvar = new Map([...table.matchAll(/^ {2}([A-C]-[A-CN]) +(?:[CL] [\d.]+ (?:µF|mH)|-) +(-?\d+\.\d\d) /gm)].map((m) => [m[1]!, Math.abs(Number(m[2]))]));
-    expect(tableKvar.size).toBe(6);
-    const changes = [...text.replace(/\s+/g, ' ').matchAll(/([A-C]-[A-CN]) (\d+\.\d\d) → (\d+\.\d\d) kvar/g)];
-    expect(changes.length).toBeGreaterThan(0);
-    for (const [, branch, from, to] of changes) {
-      expect(Number(from), `${branch} ${from} → ${to}`).toBe(tableKvar.get(branch!));
-      expect(from === '0.00' && to === '0.00', branch).toBe(false);
-    }
+  it('rounded up beside its reactors, the build meets the target and costs less; its reactors stay as sized', () => {
+    expect(report.roundingBesideReactors).toMatchObject({ used: 'up', verdictUp: 'meets', verdictDown: 'meets-at-nominal' });
+    expect(report.roundingBesideReactors!.costUp!).toBeLessThan(report.roundingBesideReactors!.costDown!);
+    expect(report.reactorResizing!.used).toBe(false);
+    // Nothing was re-sized, so the report lists no "branch a → b kvar" change.
+    expect(renderCorrectionReport(report).replace(/\s+/g, ' ')).not.toMatch(/[A-C]-[A-CN] \d+\.\d\d → \d+\.\d\d kvar/);
   });
 
   it('no reactor of the build is below the negligible share, and none is bought that costs a target', () => {
@@ -86,11 +83,11 @@ describe('Tannery Lane offices: the balancing compensator with a negligible bran
     }
   });
 
-  it('the verdict agrees with the build as re-solved: PF1+ at least 0.95 and the balance met at nominal capacitance', () => {
+  it('the verdict agrees with the build as re-solved: PF1+ at least 0.95 and the balance met', () => {
     const res = solveBoardModel(addCorrectionEquipment(offices, report.verification.equipment));
     expect(res.powerFactor.positiveSequence!.pf).toBeGreaterThanOrEqual(0.95);
     expect(checkBalance(res, sizing.balance).met).toBe(true);
-    expect(report.status).toBe('meets-target-at-nominal-capacitance');
+    expect(report.status).toBe('meets-target');
     expect(report.summary).not.toMatch(/reactor on A-N/);
     // No branch is said to stay "short of the target" beside a verdict that the board meets it.
     for (const w of report.warnings) expect(w.message).not.toMatch(/short of the target/);
@@ -119,5 +116,53 @@ describe('on any lagging board behind a transformer (property)', () => {
       }),
       { numRuns: runs(8) },
     );
+  });
+});
+
+describe('a build whose reactors are re-sized: the report\'s "branch a → b kvar" figures', () => {
+  // A dye works' circuits (invented): uneven line-to-neutral and line-to-line loads beside a 17.4 kW
+  // drive, behind a 250 kVA transformer. Rounded down beside the reactors, the reactors re-sized, the
+  // compensator meets the target and costs less than rounded up.
+  const loads = [
+    { name: 'stenter', connection: 'C-A', kW: 4.4, pf: 0.87 },
+    { name: 'jigger 1', connection: 'C-N', kW: 2.3, pf: 0.75 },
+    { name: 'lights', connection: 'B-N', kW: 1.3, pf: 0.89 },
+    { name: 'dryer', connection: 'A-B', kW: 5.3, pf: 0.82 },
+    { name: 'pump 1', connection: 'A-N', kW: 1.7, pf: 0.93 },
+    { name: 'heaters', connection: 'B-N', kW: 5.1, pf: 0.92 },
+    { name: 'winch', connection: 'A-N', kW: 6.3, pf: 0.92 },
+    { name: 'calender', connection: 'C-A', kW: 6.7, pf: 0.89 },
+    { name: 'pump 2', connection: 'A-N', kW: 2.5, pf: 0.88 },
+    { name: 'fans', connection: 'C-A', kW: 3.4, pf: 0.76 },
+    { name: 'jigger 2', connection: 'A-N', kW: 6.3, pf: 0.84 },
+    { name: 'drive', connection: 'ABC-delta', kW: 17.4, pf: 0.8 },
+  ];
+  const board = normaliseBoard(
+    parseBoard({
+      name: 'dye works',
+      supply: { system: 'three-phase-4wire', voltage: { lineToLine: 400 }, frequencyHz: 50, transformer: { kVA: 250, impedancePercent: 4, xOverR: 3 } },
+      feeder: { line: { r: 0.02, x: 0.01 }, neutral: { r: 0.03, x: 0.01 } },
+      loads,
+    }),
+  );
+  const r = correctBoard(board, { arrangement: 'balancing-compensator', target: { pf: 0.95 } });
+  const c = r.sizing as CompensatorSizing;
+
+  it('every figure reads as the sizing table does, and 0 → 0 is never listed', () => {
+    expect(r.roundingBesideReactors).toMatchObject({ used: 'down', verdictDown: 'meets', verdictUp: 'meets' });
+    expect(r.roundingBesideReactors!.costDown!).toBeLessThan(r.roundingBesideReactors!.costUp!);
+    expect(r.reactorResizing!.used).toBe(true);
+    expect(r.status).toBe('meets-target');
+    const text = renderCorrectionReport(r);
+    const table = text.split('ideal solution (may need reactors), re-solved:')[1]!.split('ideal residual')[0]!;
+    const tableKvar = new Map([...table.matchAll(/^ {2}([A-C]-[A-CN]) +(?:[CL] [\d.]+ (?:µF|mH)|-) +(-?\d+\.\d\d) /gm)].map((m) => [m[1]!, Math.abs(Number(m[2]))]));
+    expect(tableKvar.size).toBe(6);
+    const changes = [...text.replace(/\s+/g, ' ').matchAll(/([A-C]-[A-CN]) (\d+\.\d\d) → (\d+\.\d\d) kvar/g)];
+    expect(changes.length).toBeGreaterThan(0);
+    for (const [, branch, from, to] of changes) {
+      expect(Number(from), `${branch} ${from} → ${to}`).toBe(tableKvar.get(branch!));
+      expect(from === '0.00' && to === '0.00', branch).toBe(false);
+    }
+    expect(c.ideal.reactorBranches.length).toBeGreaterThan(0);
   });
 });

@@ -1,5 +1,5 @@
 /** CorrectionReport → the human-readable report of `trivar correct` (fits 100 columns). */
-import { arrangementDescriptions, arrangementNames, CORRECTION_DEFAULTS, labellerOf, meteringPointWords, reactorChanges, smallBranchWords, sparedBranchesWords, type BankSelection, type BankStep, type BeforeAfter, type BranchSizing, type CompensatorSizing, type ControllerSettings, type CorrectionReport, type CorrectionVerification, type FewerBranchesBuild, type PhaseId, type PhaseLabeller } from '@trivar/core';
+import { arrangementDescriptions, arrangementNames, BUILD_VERDICT_WORDS, CORRECTION_DEFAULTS, labellerOf, meteringPointWords, reactorChanges, smallBranchWords, sparedBranchesWords, type BankSelection, type BankStep, type BeforeAfter, type BranchSizing, type CompensatorSizing, type ControllerSettings, type CorrectionReport, type CorrectionVerification, type FewerBranchesBuild, type PhaseId, type RoundingBesideReactors, type PhaseLabeller } from '@trivar/core';
 import { fixed, renderTable, section } from './textTable.js';
 import { headerLines } from './solveReport.js';
 import { wrapText } from './wrapText.js';
@@ -255,13 +255,6 @@ function smallBranchLines(c: CompensatorSizing, label: PhaseLabeller): string[] 
   return c.smallBranches.map((b) => wrapText(smallBranchWords({ ...b, branch: label(b.branch) }, percent), '  ', '    '));
 }
 
-const VERDICT_WORDS: Readonly<Record<FewerBranchesBuild['verdict'], string>> = {
-  meets: 'meets the target',
-  'meets-at-nominal': 'meets it at nominal capacitance only',
-  misses: 'misses it',
-  'no-units': 'no units fit',
-};
-
 /** The capacitor-only solution on fewer branches: which went, and whether that build or the one on every branch is built. */
 function fewerBranchLines(c: CompensatorSizing, build: FewerBranchesBuild | null, label: PhaseLabeller): string[] {
   if (!c.fewerBranches) return [];
@@ -272,13 +265,22 @@ function fewerBranchLines(c: CompensatorSizing, build: FewerBranchesBuild | null
     build === null
       ? ''
       : build.verdict !== build.verdictOnEveryBranch
-      ? `; from units, on fewer branches the board ${VERDICT_WORDS[build.verdict]}, on every branch it ${VERDICT_WORDS[build.verdictOnEveryBranch]}: ${build.used ? 'fewer branches built' : 'every branch built'}`
+      ? `; from units, on fewer branches the board ${BUILD_VERDICT_WORDS[build.verdict]}, on every branch it ${BUILD_VERDICT_WORDS[build.verdictOnEveryBranch]}: ${build.used ? 'fewer branches built' : 'every branch built'}`
       : `; from units, ${cost(build.cost)} on fewer branches against ${cost(build.costOnEveryBranch)} on every branch: ${build.used ? 'fewer branches built' : 'every branch built'}`;
   const table = build?.used ? ['  capacitor-only on fewer branches (built):', sizingTable(c.fewerBranches.solution.branches, label)] : [];
   return [wrapText(words + choice, '  ', '    '), ...table];
 }
 
-function compensatorBlock(c: CompensatorSizing, ideal: CorrectionVerification | null, resizing: CorrectionReport['reactorResizing'], fewer: FewerBranchesBuild | null, label: PhaseLabeller): string {
+/** How the capacitors beside the reactors were rounded to units, and why (both builds re-solved). */
+function roundingLines(r: RoundingBesideReactors | null, resized: boolean): string[] {
+  if (!r) return [];
+  const cost = (x: number | null) => (x === null ? 'no units fit' : `cost ${fixed(x, 1)}`);
+  const how = `rounded up the board ${BUILD_VERDICT_WORDS[r.verdictUp]} (${cost(r.costUp)}), rounded down it ${BUILD_VERDICT_WORDS[r.verdictDown]} (${cost(r.costDown)}; reactors counted at twice their kvar)`;
+  const what = `capacitors rounded ${r.used === 'up' ? 'up to units' : 'down to their requirement'}, the reactors ${resized ? 'sized again around them' : 'as sized'}`;
+  return [wrapText(`${what}: ${how}`, '  ', '    ')];
+}
+
+function compensatorBlock(c: CompensatorSizing, ideal: CorrectionVerification | null, resizing: CorrectionReport['reactorResizing'], fewer: FewerBranchesBuild | null, rounding: RoundingBesideReactors | null, label: PhaseLabeller): string {
   const res = (title: string, s: CompensatorSizing['ideal']) =>
     `${title}: |I2|/|I1| ${fixed(s.residual.negativeSequenceCurrentPercent, 2)} %, |I0|/|I1| ${fixed(s.residual.zeroSequenceCurrentPercent, 2)} %` +
     (s.residual.neutralCurrentA === null ? '' : `, neutral ${fixed(s.residual.neutralCurrentA, 2)} A`) +
@@ -295,6 +297,7 @@ function compensatorBlock(c: CompensatorSizing, ideal: CorrectionVerification | 
     sizingTable(c.capacitorOnly.branches, label),
     indentLines([res('capacitor-only residual', c.capacitorOnly)]),
     ...fewerBranchLines(c, fewer, label),
+    ...roundingLines(rounding, resizing?.used === true),
     indentLines([
       c.recommended === 'ideal'
         ? resizing?.used
@@ -379,7 +382,7 @@ export function renderCorrectionReport(r: CorrectionReport): string {
     ...r.reasons.map((x) => wrapText(x, '  - ', '    ')),
     ...balanceLine(r).map((x) => wrapText(x, '  ', '    ')),
   ];
-  if (r.sizing.arrangement === 'balancing-compensator') parts.push(section('Compensator sizing') + compensatorBlock(r.sizing, r.idealVerification, r.reactorResizing, r.fewerBranchesBuild, label));
+  if (r.sizing.arrangement === 'balancing-compensator') parts.push(section('Compensator sizing') + compensatorBlock(r.sizing, r.idealVerification, r.reactorResizing, r.fewerBranchesBuild, r.roundingBesideReactors, label));
   else {
     const shift = r.sizing.starPointShift;
     const shiftLines = shift

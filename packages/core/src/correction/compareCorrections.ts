@@ -16,7 +16,8 @@ import type { Arrangement, CorrectionSpec } from './correctionSpec.js';
 import { parseCorrectionSpec } from './validateCorrectionSpec.js';
 import { arrangementsFor } from './correctionRules.js';
 import { correctBoard } from './correctBoard.js';
-import { kvarFromSusceptance } from './equipment.js';
+import { reactorKvarOf } from './equipment.js';
+import { CORRECTION_DEFAULTS } from './correctionDefaults.js';
 import type { CorrectionReport, CorrectionStatus } from './correctionResult.js';
 import { arrangementNames, comparisonWording } from './correctionWording.js';
 import { balanceWorsening } from './balanceWorsening.js';
@@ -78,13 +79,10 @@ export function specFor(spec: CorrectionSpec, arrangement: Arrangement): Correct
   return out as CorrectionSpec;
 }
 
-/** A reactor costs about twice a capacitor of the same kvar (common practice, no source). */
-const REACTOR_COST_FACTOR = 2;
-
 export function figuresOf(r: CorrectionReport): ArrangementFigures {
   const v = r.verification;
   const sel = r.selection;
-  const reactorKvar = v.equipment.flatMap((g) => g.branches).reduce((s, b) => s + (b.susceptanceS < 0 ? Math.abs(kvarFromSusceptance(b.susceptanceS, b.vNominal)) : 0), 0);
+  const reactorKvar = reactorKvarOf(v.equipment);
   // Judged where the target is measured (the board, or its metering point).
   const linePfs = (v.metering?.after ?? v.after).phases.flatMap((p) => (p.pf === null ? [] : [p.pf]));
   const lowest = linePfs.length === 0 ? null : Math.min(...linePfs);
@@ -104,7 +102,7 @@ export function figuresOf(r: CorrectionReport): ArrangementFigures {
     neutralCurrentA: v.neutralCurrentA?.after ?? null,
     negativeSequencePercent: v.unbalance?.negativeSequenceCurrentPercent.after ?? null,
     lossesKW: v.after.losses.totalKW,
-    cost: (sel?.cost.value ?? 0) + REACTOR_COST_FACTOR * reactorKvar,
+    cost: (sel?.cost.value ?? 0) + CORRECTION_DEFAULTS.reactorCostFactor * reactorKvar,
   };
 }
 

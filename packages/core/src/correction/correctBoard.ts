@@ -8,7 +8,7 @@
 import type { Board, PhaseId } from '../board/boardModel.js';
 import type { Arrangement, CorrectionSpec } from './correctionSpec.js';
 import { InputError, inputIssue } from '../errors.js';
-import { kvarFromSusceptance, type EquipmentGroup } from './equipment.js';
+import { kvarFromSusceptance, reactorKvarOf, type EquipmentGroup } from './equipment.js';
 import { parseCorrectionSpec } from './validateCorrectionSpec.js';
 import { resolveTarget, TARGET_SLACK, type TargetCheck } from './correctionTarget.js';
 import { checkBalance } from './balanceTarget.js';
@@ -18,12 +18,12 @@ import { sizeBalancingCompensator } from './sizeBalancingCompensator.js';
 import { defaultPractice, selectBankUnits } from './selectBankUnits.js';
 import { verifyCorrection, type VerifyCorrectionOptions } from './verifyCorrection.js';
 import { scaleBoardLoads } from './scaleBoardLoads.js';
-import type { BankSelection, BankSizing, BuildVerdict, CompensatorSizing, CorrectionReport, CorrectionStatus, CorrectionWarning, FewerBranchesBuild, SizedEquipment } from './correctionResult.js';
+import type { BankSelection, BankSizing, BuildVerdict, CompensatorSizing, CorrectionReport, CorrectionStatus, CorrectionVerification, CorrectionWarning, FewerBranchesBuild, RoundingBesideReactors, SizedEquipment } from './correctionResult.js';
 import { arrangementNames, correctionCautions, infeasibleReason, MODEL_CAUTION, meteringWarning, reportSummary, warningText } from './correctionWording.js';
 import { definedOnly } from './_internal/optionSchemas.js';
 import { assertViableBoard } from '../analysis/viableOperatingPoint.js';
 import { CORRECTION_DEFAULTS } from './correctionDefaults.js';
-import { refitReactors, selectionWithResizedReactors } from './_internal/refitReactors.js';
+import { refitReactors, selectionWithResizedReactors, type RefitOutcome } from './_internal/refitReactors.js';
 import { conventionsOf } from '../board/conventions/boardConventions.js';
 import { labellerOf, type PhaseLabeller } from '../board/conventions/phaseNames.js';
 import { regionWords } from '../board/conventions/regionWords.js';
@@ -118,7 +118,7 @@ export function correctBoard(board: Board, spec: unknown): CorrectionReport {
   const spread = buildable(sizing);
   const needsUnits = sizing.status !== 'already-meets-target' && spread.branches.some((b) => b.element === 'capacitor');
   const scaled = parsed.lightLoad ? scaleBoardLoads(board, parsed.lightLoad) : null;
-  const selectUnits = (sized: SizedEquipment, heldBranches?: readonly string[]): BankSelection =>
+  const selectUnits = (sized: SizedEquipment, how: { heldBranches?: readonly string[]; besideReactors?: 'up' } = {}): BankSelection =>
     selectBankUnits(
       sized,
       definedOnly({
@@ -132,8 +132,9 @@ export function correctBoard(board: Board, spec: unknown): CorrectionReport {
         capacitanceTolerance: parsed.capacitanceTolerance,
         voltageMarginPercent: parsed.voltageMarginPercent,
         deliveryFloorPercent: parsed.deliveryFloorPercent,
-        lightLoad: scaled ? buildable(sizeArrangement(scaled, parsed, { limitsOnly: true, ...(heldBranches ? { heldBranches } : {}) })) : undefined,
+        lightLoad: scaled ? buildable(sizeArrangement(scaled, parsed, { limitsOnly: true, ...(how.heldBranches ? { heldBranches: how.heldBranches } : {}) })) : undefined,
         phaseNames,
+        besideReactors: how.besideReactors,
       }),
     );
   const verifyOptions = (equipment: VerifyCorrectionOptions['equipment']): VerifyCorrectionOptions =>
@@ -145,51 +146,80 @@ export function correctBoard(board: Board, spec: unknown): CorrectionReport {
       capacitanceTolerance: parsed.capacitanceTolerance,
       voltageRiseLimitPercent: parsed.voltageRiseLimitPercent,
     });
-  const { sized, selection, fewerBranchesBuild } = chooseBuild();
-  /**
-   * The build from units: of the sizing, or for a capacitor-only compensator that also works on fewer
-   * branches, of whichever of the two re-solves to the better verdict, then costs less (fewer branches at
-   * equal cost): units round differently on different branches, so fewer branches can cost more.
-   */
-  function chooseBuild(): { sized: SizedEquipment; selection: BankSelection | null; fewerBranchesBuild: FewerBranchesBuild | null } {
-    if (!needsUnits) return { sized: spread, selection: null, fewerBranchesBuild: null };
-    const onEvery = selectUnits(spread);
-    const fewer = sizing.arrangement === 'balancing-compensator' && sizing.recommended === 'capacitor-only' ? sizing.fewerBranches : null;
-    if (!fewer) return { sized: spread, selection: onEvery, fewerBranchesBuild: null };
-    const onFewer = selectUnits(fewer.solution, fewer.spared.map((b) => b.branch));
-    const verdictOf = (built: BankSelection): BuildVerdict => {
-      if (built.unbuildable) return 'no-units';
-      const v = verifyCorrection(board, verifyOptions(built.equipment));
-      if (!v.check.met || (sizing.arrangement === 'balancing-compensator' && !checkBalance(v.after, sizing.balance).met)) return 'misses';
-      return !v.tolerance.low.check.met || v.tolerance.high.check.leadingLines.length > 0 ? 'meets-at-nominal' : 'meets';
-    };
-    const verdict = verdictOf(onFewer);
-    const verdictOnEveryBranch = verdictOf(onEvery);
-    const rank = BUILD_VERDICT_RANK;
-    const used =
-      rank[verdict] < rank[verdictOnEveryBranch] || (verdict === verdictOnEveryBranch && verdict !== 'no-units' && onFewer.cost.value <= onEvery.cost.value);
-    const costOf = (b: BankSelection) => (b.unbuildable ? null : b.cost.value);
-    return {
-      sized: used ? fewer.solution : spread,
-      selection: used ? onFewer : onEvery,
-      fewerBranchesBuild: { used, cost: costOf(onFewer), costOnEveryBranch: costOf(onEvery), verdict, verdictOnEveryBranch },
-    };
+  /** A build from units, its reactors sized again around the capacitors as built where it has them, re-solved. */
+  interface Build {
+    readonly sized: SizedEquipment;
+    readonly selection: BankSelection | null;
+    readonly refit: RefitOutcome | null;
+    readonly recommended: readonly EquipmentGroup[];
+    readonly verification: CorrectionVerification;
+    readonly verdict: BuildVerdict;
+    /** The unit choice's cost plus the reactors' (as compareCorrections counts them); null when no units fit. */
+    readonly cost: number | null;
   }
-  // Built with reactors, a compensator gets its reactors sized again beside the capacitors as built
-  // (units round capacitors; the reactors were sized beside exact ones), and keeps them if that helps.
-  const refit =
-    selection && !selection.unbuildable && sizing.arrangement === 'balancing-compensator' && sizing.recommended === 'ideal'
-      ? refitReactors(board, selection.equipment, {
-          target: sizing.target,
-          balance: sizing.balance,
-          includeZeroSequence: sizing.branchesUsed === 'delta-and-star',
-          weights: sizing.weights,
-          maxIterations: CORRECTION_DEFAULTS.maxIterations,
-        })
-      : null;
+  const buildOf = (sized: SizedEquipment, selection: BankSelection | null): Build => {
+    // Built with reactors, a compensator gets its reactors sized again beside the capacitors as built
+    // (units round capacitors; the reactors were sized beside exact ones), and keeps them if that helps.
+    const refit =
+      selection && !selection.unbuildable && sizing.arrangement === 'balancing-compensator' && sizing.recommended === 'ideal'
+        ? refitReactors(board, selection.equipment, {
+            target: sizing.target,
+            balance: sizing.balance,
+            includeZeroSequence: sizing.branchesUsed === 'delta-and-star',
+            weights: sizing.weights,
+            maxIterations: CORRECTION_DEFAULTS.maxIterations,
+          })
+        : null;
+    const recommended = sizing.status === 'already-meets-target' ? [] : refit?.used ? refit.equipment : (selection?.equipment ?? sized.equipment);
+    const verification = verifyCorrection(board, verifyOptions(recommended));
+    const verdict: BuildVerdict = selection?.unbuildable
+      ? 'no-units'
+      : !verification.check.met || (sizing.arrangement === 'balancing-compensator' && !checkBalance(verification.after, sizing.balance).met)
+      ? 'misses'
+      : !verification.tolerance.low.check.met || verification.tolerance.high.check.leadingLines.length > 0
+      ? 'meets-at-nominal'
+      : 'meets';
+    const cost = selection?.unbuildable ? null : (selection?.cost.value ?? 0) + CORRECTION_DEFAULTS.reactorCostFactor * reactorKvarOf(recommended);
+    return { sized, selection, refit, recommended, verification, verdict, cost };
+  };
+  /** True when `a` is the build to keep over `b`: a better verdict, else no higher cost. */
+  const keeps = (a: Build, b: Build): boolean =>
+    BUILD_VERDICT_RANK[a.verdict] < BUILD_VERDICT_RANK[b.verdict] || (a.verdict === b.verdict && a.cost !== null && b.cost !== null && a.cost <= b.cost);
+  const { build: chosen, fewerBranchesBuild, roundingBesideReactors } = chooseBuild();
+  /**
+   * The build from units. Two compensators have a second build to weigh, kept when it re-solves to a
+   * better verdict or the same at no higher cost: a capacitor-only compensator that also works on fewer
+   * branches (units round differently on different branches, so fewer can cost more), and one with
+   * reactors, whose capacitors are rounded down to their requirement (the reactors as sized then
+   * balance them) or up (the reactors sized again around them; rounded down, the PF falls short).
+   */
+  function chooseBuild(): { build: Build; fewerBranchesBuild: FewerBranchesBuild | null; roundingBesideReactors: RoundingBesideReactors | null } {
+    if (!needsUnits) return { build: buildOf(spread, null), fewerBranchesBuild: null, roundingBesideReactors: null };
+    const base = buildOf(spread, selectUnits(spread));
+    if (sizing.arrangement !== 'balancing-compensator') return { build: base, fewerBranchesBuild: null, roundingBesideReactors: null };
+    const fewer = sizing.recommended === 'capacitor-only' ? sizing.fewerBranches : null;
+    if (fewer) {
+      const onFewer = buildOf(fewer.solution, selectUnits(fewer.solution, { heldBranches: fewer.spared.map((b) => b.branch) }));
+      const used = keeps(onFewer, base);
+      return {
+        build: used ? onFewer : base,
+        fewerBranchesBuild: { used, cost: onFewer.cost, costOnEveryBranch: base.cost, verdict: onFewer.verdict, verdictOnEveryBranch: base.verdict },
+        roundingBesideReactors: null,
+      };
+    }
+    if (sizing.recommended === 'ideal' && spread.branches.some((b) => b.element === 'reactor')) {
+      const up = buildOf(spread, selectUnits(spread, { besideReactors: 'up' }));
+      const used = keeps(up, base) && !(up.verdict === base.verdict && up.cost === base.cost);
+      return {
+        build: used ? up : base,
+        fewerBranchesBuild: null,
+        roundingBesideReactors: { used: used ? 'up' : 'down', verdictDown: base.verdict, verdictUp: up.verdict, costDown: base.cost, costUp: up.cost },
+      };
+    }
+    return { build: base, fewerBranchesBuild: null, roundingBesideReactors: null };
+  }
+  const { sized, selection, refit, recommended, verification } = chosen;
   const useRefit = refit !== null && refit.used;
-  const recommended = sizing.status === 'already-meets-target' ? [] : useRefit ? refit.equipment : (selection?.equipment ?? sized.equipment);
-  const verification = verifyCorrection(board, verifyOptions(recommended));
   const built = useRefit && selection ? selectionWithResizedReactors(selection, refit, verification.branches) : selection;
   const resizedWords = (r: NonNullable<typeof refit>['reactors']) => r.map((x) => ({ ...x, branch: label(x.branch) }));
   const resizing = refit ? { reactors: refit.reactors, objectiveSized: refit.objectiveSized, objectiveResized: refit.objectiveResized, converged: refit.converged, used: useRefit, solves: refit.solves } : null;
@@ -206,12 +236,21 @@ export function correctBoard(board: Board, spec: unknown): CorrectionReport {
   } else if (!verification.check.met || (balance && !balance.met)) {
     status = 'misses-target-with-available-units';
     reasons.push(infeasibleReason.unitsMissTarget([...verification.check.shortfalls, ...(balance?.shortfalls ?? [])]));
-    // Beside reactors kept at their continuous values the capacitors may not pass their requirement
-    // (the balance would tip), so units round them down and the small net compensation shrinks.
+    // Rounded down beside the reactors (kept at their continuous values the capacitors may not pass their
+    // requirement: the balance would tip), the small net compensation shrinks; rounded up did no better.
     const reactorKvar = sized.branches.reduce((sum, b) => sum + (b.element === 'reactor' ? -b.kvarAtAppliedV : 0), 0);
-    if (selection && reactorKvar > 0) {
+    if (selection && reactorKvar > 0 && roundingBesideReactors?.used !== 'up') {
       const idealCapKvar = sized.branches.reduce((sum, b) => sum + (b.element === 'capacitor' ? b.kvarAtAppliedV : 0), 0);
-      if (selection.deliveredKvar < idealCapKvar) reasons.push(infeasibleReason.capacitorsRoundedDownBesideReactors(selection.deliveredKvar, idealCapKvar, reactorKvar, resizing && { used: resizing.used, reactors: resizedWords(resizing.reactors) }));
+      if (selection.deliveredKvar < idealCapKvar)
+        reasons.push(
+          infeasibleReason.capacitorsRoundedDownBesideReactors(
+            selection.deliveredKvar,
+            idealCapKvar,
+            reactorKvar,
+            resizing && { used: resizing.used, reactors: resizedWords(resizing.reactors) },
+            roundingBesideReactors?.verdictUp ?? null,
+          ),
+        );
     }
   } else if (!verification.tolerance.low.check.met || verification.tolerance.high.check.leadingLines.length > 0)
     status = 'meets-target-at-nominal-capacitance';
@@ -259,6 +298,7 @@ export function correctBoard(board: Board, spec: unknown): CorrectionReport {
     balance,
     reactorResizing: resizing,
     fewerBranchesBuild,
+    roundingBesideReactors,
     warnings,
     // Nothing to install: the capacitor cautions (discharge, inrush, resonance) are for equipment being added.
     cautions: status === 'already-meets-target' ? [MODEL_CAUTION] : correctionCautions(regionWords(conventionsOf(board).region, board.system).groundWord),

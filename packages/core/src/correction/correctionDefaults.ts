@@ -100,6 +100,8 @@ export const CORRECTION_DEFAULTS = {
    * practice, no source): within what a class-1 meter reads, far inside the default targets of 10 % and 20 %.
    */
   fewerBranchesAllowancePercent: 0.5,
+  /** A reactor costs about this many times a capacitor of the same kvar, when builds are compared (common practice, no source). */
+  reactorCostFactor: 2,
   /** Outer iterations of the sizing loops (each re-solves the board). */
   maxIterations: 30,
   /**

@@ -483,6 +483,12 @@ export interface CorrectionReport {
    * Null otherwise.
    */
   readonly fewerBranchesBuild: FewerBranchesBuild | null;
+  /**
+   * Balancing compensator built with reactors: its capacitors rounded down to their requirement (the
+   * reactors as sized) or up (the reactors sized again around them), the better verdict kept, then the
+   * lower cost. Null otherwise.
+   */
+  readonly roundingBesideReactors: RoundingBesideReactors | null;
   readonly warnings: readonly CorrectionWarning[];
   readonly cautions: readonly string[];
 }
@@ -490,13 +496,22 @@ export interface CorrectionReport {
 export interface FewerBranchesBuild {
   /** True when the build on fewer branches is the one chosen. */
   readonly used: boolean;
-  /** Cost of the build on fewer branches (as `selection.cost`); null when no units fit. */
+  /** Cost of the build on fewer branches (`selection.cost`; a capacitor-only build has no reactors); null when no units fit. */
   readonly cost: number | null;
   /** Cost of the build on every branch the programme used; null when no units fit. */
   readonly costOnEveryBranch: number | null;
   /** How each build fares when re-solved: meets across the tolerance, at nominal capacitance, misses, or no units fit. */
   readonly verdict: BuildVerdict;
   readonly verdictOnEveryBranch: BuildVerdict;
+}
+
+export interface RoundingBesideReactors {
+  readonly used: 'down' | 'up';
+  readonly verdictDown: BuildVerdict;
+  readonly verdictUp: BuildVerdict;
+  /** Unit cost plus the reactors at twice their kvar; null when no units fit. */
+  readonly costDown: number | null;
+  readonly costUp: number | null;
 }
 
 export type BuildVerdict = 'meets' | 'meets-at-nominal' | 'misses' | 'no-units';

@@ -5,7 +5,7 @@
 import type { PhaseLabel } from '../board/conventions/phaseNames.js';
 import type { PowerFactorSense } from '../analysis/boardResult.js';
 import type { Arrangement, TargetDefinition } from './correctionSpec.js';
-import type { SmallBranch, SparedBranch, TargetName } from './correctionResult.js';
+import type { BuildVerdict, SmallBranch, SparedBranch, TargetName } from './correctionResult.js';
 
 interface TargetWords {
   readonly definition: TargetDefinition;
@@ -94,8 +94,9 @@ export const infeasibleReason = {
       .join(', ')}: reactors on ${branches.join(', ')} are needed, which a capacitor-only build cannot give`,
   capacitorsCannotBalance: (shortfalls: readonly string[]) =>
     `capacitors alone cannot bring the unbalance down without making a line lead: ${shortfalls.join('; ')}`,
-  capacitorsRoundedDownBesideReactors: (built: number, ideal: number, reactor: number, resizing: ResizingWords | null) => {
-    const head = `beside the reactors a capacitor may not exceed its requirement (past it the balance tips and lines lead), so the units fall short of the ideal capacitors: ${built.toFixed(2)} kvar built against ${ideal.toFixed(2)} kvar sized`;
+  capacitorsRoundedDownBesideReactors: (built: number, ideal: number, reactor: number, resizing: ResizingWords | null, verdictUp: BuildVerdict | null) => {
+    const up = verdictUp === null ? '' : `; rounded up, with the reactors sized again around them, the board ${BUILD_VERDICT_WORDS[verdictUp]} too`;
+    const head = `the capacitors are rounded down to their requirement beside the reactors (past it, with the reactors as sized, the balance tips and lines lead${up}), so the units fall short of the ideal capacitors: ${built.toFixed(2)} kvar built against ${ideal.toFixed(2)} kvar sized`;
     if (resizing?.used) {
       const sum = (key: 'sizedKvar' | 'resizedKvar') => resizing.reactors.reduce((s, r) => s + r[key], 0);
       return `${head}. The reactors were re-sized to the capacitors as built (${reactorChanges(resizing.reactors)}; ${sum('sizedKvar').toFixed(2)} → ${sum('resizedKvar').toFixed(2)} kvar in all, at nominal voltage), which is the build verified here, and it still misses the target`;
@@ -219,6 +220,14 @@ export function sparedBranchesWords(spared: readonly (Omit<SparedBranch, 'branch
   const names = spared.map((b) => `${b.branch} (${b.kvarAtNominalV.toFixed(2)} kvar)`).join(', ');
   return `fewer branches: the programme spread the output over ${spreadOver} branches; ${names} left out and the others sized again, because without ${spared.length === 1 ? 'it' : 'them'} every target is still met and the balance is within ${f1(allowancePercent)} % of |I1| of what it was — ${effect}`;
 }
+
+/** How a build from units fares when re-solved, as a clause after "the board". */
+export const BUILD_VERDICT_WORDS: Readonly<Record<BuildVerdict, string>> = {
+  meets: 'meets the target',
+  'meets-at-nominal': 'meets the target at nominal capacitance only',
+  misses: 'misses the target',
+  'no-units': 'finds no units that fit',
+};
 
 export const selectionWording = {
   typicalNote:

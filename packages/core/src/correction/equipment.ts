@@ -149,3 +149,7 @@ export function addCorrectionEquipment(board: Board, groups: readonly EquipmentG
   });
   return { ...board, loads: [...board.loads, ...added] };
 }
+
+/** The reactors' output of a set of groups, kvar at nominal voltage (inductive counted positive). */
+export const reactorKvarOf = (groups: readonly EquipmentGroup[]): number =>
+  groups.flatMap((g) => g.branches).reduce((sum, b) => sum + (b.susceptanceS < 0 ? Math.abs(kvarFromSusceptance(b.susceptanceS, b.vNominal)) : 0), 0);

@@ -63,6 +63,12 @@ export interface SelectBankUnitsOptions {
   readonly lightLoad?: SizedEquipment;
   /** How the board file names its phases: warnings name branches that way (data keys stay A/B/C). @defaultValue 'A/B/C' */
   readonly phaseNames?: PhaseNaming;
+  /**
+   * Beside reactors: `down` keeps each capacitor at most at its requirement (the reactors as sized then
+   * balance it), `up` allows the headroom a branch without a sized limit gets (the reactors are then
+   * sized again around the capacitors as built: see refitReactors). @defaultValue 'down'
+   */
+  readonly besideReactors?: 'down' | 'up';
 }
 
 const selectOptionsSchema = z.strictObject({
@@ -86,6 +92,7 @@ const selectOptionsSchema = z.strictObject({
   deliveryFloorPercent: z.number().min(0).max(100).optional(),
   lightLoad: z.custom<SizedEquipment>((v) => typeof v === 'object' && v !== null && Array.isArray((v as SizedEquipment).branches)).optional(),
   phaseNames: z.enum(PHASE_NAMINGS).optional(),
+  besideReactors: z.enum(['down', 'up']).optional(),
 });
 
 /** Practice a board follows when none is given: 60 Hz boards are taken as North-American, 50 Hz as IEC (a rule of thumb; set `practice` where it is wrong). */
@@ -142,9 +149,9 @@ export function selectBankUnits(sized: SizedEquipment, options?: SelectBankUnits
 
   // Per branch: the window and the voltage rule.
   const slots = sized.equipment.flatMap((g) => g.branches);
-  // Beside reactors (kept at their continuous value) a capacitor may not grow past its
-  // requirement: the balance would tip and lines lead. Otherwise a quarter more is allowed.
-  const headroom = sized.branches.some((b) => b.element === 'reactor') ? 1 : NO_LIMIT_HEADROOM;
+  // Beside reactors kept at their continuous value a capacitor may not grow past its requirement (the
+  // balance would tip and lines lead); beside reactors sized again, and elsewhere, a quarter more is allowed.
+  const headroom = sized.branches.some((b) => b.element === 'reactor') && opts.besideReactors !== 'up' ? 1 : NO_LIMIT_HEADROOM;
   const branchInfo = sized.branches.map((b, i) => {
     const slot = slots[i]!;
     const light = opts.lightLoad?.branches[i];
