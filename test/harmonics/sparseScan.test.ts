@@ -68,7 +68,9 @@ describe('sparse scan factorisation', () => {
     fc.assert(
       fc.property(withBanksArb, (spec) => {
         const p = prepared(spec);
-        if (!p || p.bankBoards.length === 0) return;
+        // Installations that cannot carry their loads, or hold no bank, are skipped and do not count
+        // towards numRuns: every counted run compares (a plain return made the count a matter of the seed).
+        fc.pre(p !== null && p.bankBoards.length > 0);
         checked++;
         const grid = scanGrid(15, 0.5);
         for (const b of p.bankBoards) {
@@ -95,11 +97,11 @@ describe('sparse scan factorisation', () => {
           }
         }
       }),
-      { numRuns: 25 },
+      { numRuns: 16 },
     );
     figures.note('random installations compared', checked);
     figures.note('worst |Z| relative, sparse against dense', worst);
-    expect(checked).toBeGreaterThanOrEqual(12);
+    expect(checked).toBe(16);
   });
 
   it('declines a matrix whose first pivot is zero, so the caller inverts the dense one', () => {
