@@ -13,7 +13,7 @@ import {
   InputError,
   isInstallationInput,
   normaliseBoard,
-  normaliseInstallation,
+  installationInService,
   parseBoard,
   parseInstallation,
   readBoardText,
@@ -97,7 +97,8 @@ export async function runRebalance(file: string, options: RebalanceCommandOption
       fileSection = spec.rebalance as Record<string, unknown> | undefined;
       assertRebalanceOptionsFit(fileSection, options);
       const study = studySpec(spec.rebalance as Record<string, unknown> | undefined, options);
-      const installation = normaliseInstallation(spec).installation;
+      // As trivar solve has it: the banks the file lists under harmonics.banks in service.
+      const installation = installationInService(spec);
       if (options.data !== undefined) {
         const picked = await installationIntervalConditions(spec, installation, options.data, options);
         const { conditions: _c, ...rest } = study;

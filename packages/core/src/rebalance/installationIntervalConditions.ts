@@ -61,9 +61,14 @@ export function conditionsFromInstallationIntervals(
       const load = picked.board.loads[l]!;
       return { ...load, name: load.name.slice(names[b]!.length + 1) };
     });
+  const boardLoads = names.map((_, b) => loadsOf(b));
+  // A bank the file lists in service (harmonics.banks) has no column: it stays in service, as rated, in
+  // every condition (its parts keep their places among the board's loads).
+  const bankParts = new Set((installation.banksInService ?? []).flatMap((bank) => bank.loads.map((k) => `${bank.boardIndex}:${k}`)));
+  const inService = boardLoads.flatMap((loads, b) => loads.map((_, k) => bankParts.has(`${b}:${k}`)));
   return {
-    installation: { ...installation, main: { ...installation.main, loads: loadsOf(0) }, subBoards: installation.subBoards.map((sb, i) => ({ ...sb, loads: loadsOf(i + 1) })) },
-    conditions: picked.conditions.map((c) => ({ ...c, factors: order.map((l) => c.factors[l]!) })),
+    installation: { ...installation, main: { ...installation.main, loads: boardLoads[0]! }, subBoards: installation.subBoards.map((sb, i) => ({ ...sb, loads: boardLoads[i + 1]! })) },
+    conditions: picked.conditions.map((c) => ({ ...c, factors: order.map((l, i) => (inService[i] ? { re: 1, im: 0 } : c.factors[l]!)) })),
     picks: picked.picks,
   };
 }

@@ -2,6 +2,7 @@
 import type { PhaseLabel } from '../board/conventions/phaseNames.js';
 import { bandWords } from '../board/conventions/voltageLimits.js';
 import type { VoltageCheck } from '../analysis/voltageCheck.js';
+import { BANKS_IN_SERVICE_BASIS } from '../analysis/banksInServiceWords.js';
 
 const VERDICT_WORDS: Record<VoltageCheck['verdict'], string> = {
   within: 'within',
@@ -25,6 +26,8 @@ export const REBALANCE_CAUTIONS: readonly string[] = [
 ];
 
 export const REBALANCE_NOTES = {
+  banksInService: (banks: readonly string[]) =>
+    `Capacitor banks in service in every solve, now and after, ${BANKS_IN_SERVICE_BASIS}: ${banks.join('; ')}. They stay as they are: nothing of a three-phase bank moves.`,
   nothingToMove: 'No circuit on this board can move (three-phase, pinned, or the supply offers no other connection).',
   alreadyBest: 'The present wiring is already the best found: no moves.',
   solvedNotBetter: (before: number, after: number) =>
