@@ -186,7 +186,8 @@ export { studyInstallationHarmonics } from './boardFile/studyInstallationHarmoni
 export type { HarmonicsInstallationSpec, InstallationHarmonicModel, InstallationHarmonicsOptions, PlacedBank } from './harmonics/studyInstallationHarmonics.js';
 export { studyInstallationHarmonicsSpec, resolveInstallationHarmonics, analyseInstallationHarmonics } from './harmonics/studyInstallationHarmonics.js';
 export { withBanksInService } from './harmonics/banksInService.js';
-export { bankInServiceWords, BANKS_IN_SERVICE_BASIS } from './analysis/banksInServiceWords.js';
+export { bankInServiceWords, BANKS_IN_SERVICE_BASIS, listedBanksInService } from './analysis/banksInServiceWords.js';
+export type { ListedBankInService } from './analysis/banksInServiceWords.js';
 export { banksPlacementWords } from './correction/banksPlacementWords.js';
 export type { BanksPlacement } from './correction/banksPlacementWords.js';
 export { installationInService } from './boardFile/installationInService.js';

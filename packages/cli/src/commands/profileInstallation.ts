@@ -10,7 +10,9 @@ import {
   type SwitchingFromBank,
   installationBoardIndex,
   labellerOf,
-  normaliseInstallation,
+  installationInService,
+  withoutBankOn,
+  listedBanksInService,
   parseInstallation,
   planDrivers,
   planInstallationColumns,
@@ -95,11 +97,12 @@ function runInstallationScenarios(spec: ReturnType<typeof parseInstallation>, in
  */
 export async function computeInstallationProfileStudy(
   spec: ReturnType<typeof parseInstallation>,
-  installation: Installation,
+  inService: Installation,
   data: string,
   options: ProfileCommandOptions,
   io: CliIo,
 ): Promise<InstallationProfileStudy> {
+  let installation = inService;
   if (options.board !== undefined && !options.bank && !options.correctionBank) throw new UsageError('--board places the bank: give --bank or --correction-bank too');
   if (options.correctionBank && options.bank) throw new UsageError('give either --bank (a bank sized from the profile) or --correction-bank (the correction study\'s bank), not both');
   if (options.correctionBank && options.pf !== undefined)
@@ -108,6 +111,10 @@ export async function computeInstallationProfileStudy(
   installationBoardIndex(installation, options.board, '--board');
   const designed = options.correctionBank ? designedInstallationBank(spec, installation, options.board) : undefined;
   const bankBoard = options.board ?? designed?.board;
+  // The bank simulated takes the place of the file's bank in service on its board, as in trivar correct.
+  const bankAt = options.bank || designed ? installationBoardIndex(installation, bankBoard, '--board') : null;
+  const replacedBank = bankAt === null ? undefined : listedBanksInService(installation)[installation.banksInService?.findIndex((b) => b.boardIndex === bankAt) ?? -1];
+  if (bankAt !== null) installation = withoutBankOn(installation, bankAt);
   const zone = timeZoneOption(options.timeZone);
   const plan = planInstallationColumns(installation, readCsvHeader(data), {
     ...(spec.profile?.groups ? { groups: spec.profile.groups } : {}),
@@ -131,6 +138,7 @@ export async function computeInstallationProfileStudy(
         sequence: table.report,
         undriven: { loads: plan.undriven, atRating: plan.undrivenAtRating },
         ...(spec.profile ? { profile: spec.profile } : {}),
+        ...(replacedBank ? { replacedBank } : {}),
       },
       {
         timeZone: zone,
@@ -149,7 +157,8 @@ export async function computeInstallationProfileStudy(
 
 export async function runProfileInstallation(input: unknown, options: ProfileCommandOptions, io: CliIo, inputs: readonly string[] = []): Promise<InstallationProfileStudy | null> {
   const spec = parseInstallation(input);
-  const { installation } = normaliseInstallation(spec);
+  // As trivar solve has it: the banks the file lists under harmonics.banks in service.
+  const installation = installationInService(spec);
   if (!options.data) return runInstallationScenarios(spec, installation, options, io);
   const folders = chartFolders([installation.main.name, ...installation.subBoards.map((b) => b.name)]);
   const chartFiles = options.charts ? [...[...folders.values()].flatMap((f) => CHART_FILES.map((name) => join(options.charts!, f, name))), join(options.charts, FEEDER_CHART_FILE)] : [];

@@ -1,5 +1,5 @@
 /** InstallationProfileResult → the text report of `trivar profile` on an installation file. */
-import { billingPowerFactorText, labellerOf, type InstallationProfileBoard, type InstallationProfileResult, type InstallationScenarioResult, type PhaseLabeller } from '@trivar/core';
+import { BANKS_IN_SERVICE_BASIS, bankInServiceWords, billingPowerFactorText, labellerOf, type ListedBankInService, type InstallationProfileBoard, type InstallationProfileResult, type InstallationScenarioResult, type PhaseLabeller } from '@trivar/core';
 import {
   bankLines,
   currentTable,
@@ -15,6 +15,7 @@ import {
   worstTable,
 } from './profileReport.js';
 import { fixed, renderTableWithin, section } from './textTable.js';
+import { wrapText } from './wrapText.js';
 
 const hours = (h: number) => (h === 0 ? '0' : h < 10 ? fixed(h, 2) : fixed(h, 1));
 const limitPercent = (x: number) => String(Math.round(x * 100) / 100);
@@ -70,12 +71,20 @@ function boardSection(b: InstallationProfileBoard, label: PhaseLabeller): string
   ];
 }
 
+/** The banks the file lists in service, in one wrapped line; nothing when there are none. */
+function banksInServiceLines(banks: readonly ListedBankInService[], each: 'interval' | 'scenario'): string[] {
+  if (!banks.length) return [];
+  return [wrapText(`capacitor banks in service in every ${each}, ${BANKS_IN_SERVICE_BASIS}: ${banks.map((b) => bankInServiceWords(b)).join('; ')}`, '  ', '    ')];
+}
+
 export function renderInstallationProfileReport(r: InstallationProfileResult, currency: string, label: PhaseLabeller = labellerOf(r.phaseNames)): string {
   const main = r.boards[0]!;
   const bankBoard = r.bank ? r.boards.find((b) => b.board === r.bank!.board)! : null;
   const parts = [
     `${r.installation} — load over time, every board`,
     ...dataLines(r),
+    ...banksInServiceLines(r.banksInService, 'interval'),
+    ...(r.replacedBank ? [wrapText(`the file's bank on ${r.replacedBank.board}, ${bankInServiceWords(r.replacedBank).slice(r.replacedBank.board.length + 1)}, is left out: the bank studied takes its place`, '  ', '    ')] : []),
     section('Boards (currents: the supply at the main board, each sub-board\'s incoming feeder)'),
     boardTable(r),
     ...r.boards.flatMap((b) => boardSection(b, label)),
@@ -104,7 +113,7 @@ export function renderInstallationProfileReport(r: InstallationProfileResult, cu
 
 /** The installation's scenarios (no interval data): a table per board, its incomer's currents and its own voltage band. */
 export function renderInstallationScenarioReport(r: InstallationScenarioResult, label: PhaseLabeller = labellerOf(r.phaseNames)): string {
-  const parts = [`${r.installation} — scenarios (${fixed(r.hours, 0)} h), every board`, '  solved on the nodal path: every board and feeder at once in each scenario'];
+  const parts = [`${r.installation} — scenarios (${fixed(r.hours, 0)} h), every board`, '  solved on the nodal path: every board and feeder at once in each scenario', ...banksInServiceLines(r.banksInService, 'scenario')];
   for (const b of r.boards) {
     parts.push(section(`${b.board} — currents in the ${b.fedFrom === null ? 'supply to the main board' : `feeder from ${b.fedFrom}`}`), scenarioTable(b, label), scenarioYearLine(b));
     const band = `${limitPercent(b.limits.voltageLowPercent)}-${limitPercent(b.limits.voltageHighPercent)} %`;

@@ -1,4 +1,6 @@
 /** How the file's capacitor banks in service at the fundamental are named in reports (solve, correct, HTML). */
+import type { Installation } from '../board/boardModel.js';
+import { ratedKvarInService } from '../network/installationModel.js';
 import type { BankInServiceReading } from './installationResult.js';
 
 /** The state assumed, in one clause: which banks, which steps. */
@@ -19,4 +21,26 @@ export function bankInServiceWords(b: Omit<BankInServiceReading, 'deliveredKvar'
   const parts = [b.fixedKvar > 0 ? `fixed ${kvar(b.fixedKvar)} kvar, ${steps}` : steps, `${kvar(b.ratedV)} V units`, ...(b.detuningPercent > 0 ? [`detuned ${kvar(b.detuningPercent)} %`] : [])];
   const delivered = deliveredKvar === undefined ? '' : `, ${deliveredKvar.toFixed(2)} kvar delivered`;
   return `${b.board} ${kvar(b.ratedKvarInService)} kvar rated (${parts.join('; ')})${delivered}`;
+}
+
+/** A bank the file lists in service, named by its board (what `bankInServiceWords` reads), without a solved reading. */
+export type ListedBankInService = Omit<BankInServiceReading, 'deliveredKvar'>;
+
+/** The installation's banks in service, each named by its board, in the order the file lists them. */
+export function listedBanksInService(installation: Installation): ListedBankInService[] {
+  const names = [installation.main.name, ...installation.subBoards.map((b) => b.name)];
+  return (installation.banksInService ?? []).map((record) => {
+    const { boardIndex, loads: _parts, ...bank } = record;
+    return { ...bank, board: names[boardIndex]!, ratedKvarInService: ratedKvarInService(record) };
+  });
+}
+
+/**
+ * Index of each bank part among an installation's loads listed board by board, main first (the
+ * order `flattenLoads` gives): the loads profile and rebalance hold at their rating.
+ */
+export function bankPartIndices(installation: Installation): number[] {
+  const counts = [installation.main.loads.length, ...installation.subBoards.map((b) => b.loads.length)];
+  const first = counts.map((_, b) => counts.slice(0, b).reduce((s, n) => s + n, 0));
+  return (installation.banksInService ?? []).flatMap((bank) => bank.loads.map((k) => first[bank.boardIndex]! + k));
 }

@@ -40,6 +40,8 @@ export interface ColumnPlan {
   /** Loads of the board file that no column drives. */
   readonly undriven: readonly string[];
   readonly undrivenAtRating: boolean;
+  /** Loads at their rating in every interval whatever the options (capacitor banks the file lists in service). @defaultValue none */
+  readonly inService?: readonly number[];
 }
 
 const HEADER = /^(.+?)\s*\[\s*([A-Za-z]+)\s*\]$/;
@@ -53,6 +55,11 @@ export interface ColumnPlanOptions {
   readonly groups?: Readonly<Record<string, readonly string[]>>;
   /** Keep loads that no column drives at their rating (default: off). */
   readonly undrivenAtRating?: boolean;
+  /**
+   * Loads (indices) at their rating in every interval, which no column may drive: the parts of capacitor
+   * banks the file lists in service (harmonics.banks). @defaultValue none
+   */
+  readonly inService?: readonly number[];
 }
 
 /** What a header's target name stands for: how a plan finds loads, groups and metered phases. */
@@ -127,6 +134,7 @@ export function planColumns(board: Board, header: readonly string[], options: Co
  */
 export function planTargets(header: readonly string[], ownLoads: number, resolver: TargetResolver, options: ColumnPlanOptions = {}): Omit<ColumnPlan, 'board'> {
   const issues: InputIssue[] = [];
+  const inService = new Set(options.inService ?? []);
   if (header.length < 2) throw new InputError([inputIssue('missing', 'header', 'a time column and at least one data column')], 'the interval data cannot be read');
   const byName = new Map<string, { kind: ColumnTarget['kind']; loads: number[]; columns: Partial<Record<Quantity, number>> }>();
   const { loads } = resolver;
@@ -166,6 +174,8 @@ export function planTargets(header: readonly string[], ownLoads: number, resolve
       issues.push(inputIssue('bad_quantities', `header ("${name} [A]")`, 'current columns only for phases and phase-to-neutral loads (give kW or x for others)', name));
     }
     for (const l of t.loads) {
+      if (inService.has(l))
+        issues.push(inputIssue('driven_in_service', `header ("${name}")`, `loads and groups without "${loads[l]!.name}": it is part of a capacitor bank the file lists in service (harmonics.banks), in service in every interval as listed`, name));
       const other = drivenBy.get(l);
       if (other) issues.push(inputIssue('driven_twice', `header ("${name}")`, `each load driven by one column target; "${loads[l]!.name}" is also in "${other}"`, name));
       drivenBy.set(l, name);
@@ -177,8 +187,9 @@ export function planTargets(header: readonly string[], ownLoads: number, resolve
     timeHeader: header[0]!.trim(),
     dataHeaders: header.slice(1).map((h) => h.trim()),
     targets,
-    undriven: loads.slice(0, ownLoads).filter((_, i) => !drivenBy.has(i)).map((l) => l.name),
+    undriven: loads.slice(0, ownLoads).filter((_, i) => !drivenBy.has(i) && !inService.has(i)).map((l) => l.name),
     undrivenAtRating: options.undrivenAtRating ?? false,
+    ...(inService.size ? { inService: [...inService] } : {}),
   };
 }
 
@@ -208,6 +219,7 @@ export function planDrivers(plan: ColumnPlan): DriverSpec[] {
     const rest = plan.undriven.map((name) => board.loads.findIndex((l) => l.name === name));
     if (rest.length) drivers.push({ name: 'loads at rating', loads: rest.map((l) => ({ load: l, coefficient: ratedPower(board.loads[l]!) })) });
   }
+  if (plan.inService?.length) drivers.push({ name: 'banks in service', loads: plan.inService.map((l) => ({ load: l, coefficient: ratedPower(board.loads[l]!) })) });
   return drivers;
 }
 
@@ -255,9 +267,11 @@ export function driverColumns(plan: ColumnPlan, values: readonly Float64Array[],
     re.push(r);
     im.push(m);
   }
-  if (plan.undrivenAtRating && plan.undriven.length) {
-    re.push(new Float64Array(count).fill(1));
-    im.push(new Float64Array(count));
-  }
+  // The constant drivers, in planDrivers' order: loads kept at rating, then banks in service.
+  for (const constant of [plan.undrivenAtRating && plan.undriven.length > 0, (plan.inService?.length ?? 0) > 0])
+    if (constant) {
+      re.push(new Float64Array(count).fill(1));
+      im.push(new Float64Array(count));
+    }
   return { count, re, im };
 }

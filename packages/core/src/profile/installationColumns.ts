@@ -13,6 +13,7 @@ import type { BoardLoad, Installation, PhaseId } from '../board/boardModel.js';
 import { labellerOf } from '../board/conventions/phaseNames.js';
 import { conventionsOf } from '../board/conventions/boardConventions.js';
 import { inputIssue, type InputIssue } from '../errors.js';
+import { bankPartIndices } from '../analysis/banksInServiceWords.js';
 import { meteredPhaseLoad, phaseTargetOf, planTargets, type ColumnPlan, type ColumnPlanOptions, type TargetResolver } from './columnPlan.js';
 
 export interface InstallationColumnPlan extends ColumnPlan {
@@ -120,6 +121,8 @@ export function planInstallationColumns(installation: Installation, header: read
   const flat = flattenLoads(installation);
   const boards = [...flat.boards];
   const resolver = installationResolver(installation, options.groups ?? {}, boards);
-  const planned = planTargets(header, flat.loads.length, resolver, options);
+  // The parts of the banks the file lists in service: at their rating in every interval.
+  const inService = bankPartIndices(installation);
+  const planned = planTargets(header, flat.loads.length, resolver, { ...options, ...(inService.length ? { inService } : {}) });
   return { board: { ...installation.main, name: installation.name, loads: resolver.loads }, loadBoards: boards, ...planned };
 }

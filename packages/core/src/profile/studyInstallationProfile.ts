@@ -29,6 +29,7 @@ import { profileClock, resolveLimits, type ProfileBankResult, type ProfileStudyO
 import { summariseFigures, type ProfileSummary, type ResolvedLimits, type SummaryContext } from './summariseFigures.js';
 import { PROFILE_CAUTIONS } from './profileWording.js';
 import { clearInstallationRoundOff } from './installationRoundOff.js';
+import { listedBanksInService, type ListedBankInService } from '../analysis/banksInServiceWords.js';
 
 export interface InstallationProfileInput {
   readonly installation: Installation;
@@ -42,6 +43,8 @@ export interface InstallationProfileInput {
   readonly sequence?: SequenceReport;
   readonly undriven?: { readonly loads: readonly string[]; readonly atRating: boolean };
   readonly profile?: ProfileSpec;
+  /** The file's bank in service on the bank's board, taken out of `installation` for the bank studied (see withoutBankOn). */
+  readonly replacedBank?: ListedBankInService;
 }
 
 export interface InstallationProfileOptions extends Pick<ProfileStudyOptions, 'timeZone' | 'bank' | 'targetPf' | 'designedBank' | 'onProgress'> {
@@ -84,6 +87,10 @@ export interface InstallationProfileResult {
   readonly intervals: { readonly count: number; readonly intervalSeconds: number; readonly first: string; readonly last: string };
   readonly sequence: SequenceReport | null;
   readonly undriven: { readonly loads: readonly string[]; readonly atRating: boolean } | null;
+  /** The banks the file lists in service (harmonics.banks), as listed in every interval. */
+  readonly banksInService: readonly ListedBankInService[];
+  /** The file's bank on the studied bank's board, left out: the bank studied takes its place. */
+  readonly replacedBank: ListedBankInService | null;
   /** Board number order (main first). */
   readonly boards: readonly InstallationProfileBoard[];
   /**
@@ -210,6 +217,8 @@ export function studyInstallationProfile(input: InstallationProfileInput, option
     intervals: { count: n, intervalSeconds: input.intervalMs / 1000, first: label(0), last: label(n - 1) },
     sequence: input.sequence ?? null,
     undriven: input.undriven ?? null,
+    banksInService: listedBanksInService(installation),
+    replacedBank: input.replacedBank ?? null,
     boards: boards.map((board, b) => ({
       board: board.name,
       fedFrom: b === 0 ? null : names[installation.subBoards[b - 1]!.fedFrom]!,

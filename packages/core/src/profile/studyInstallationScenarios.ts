@@ -11,6 +11,7 @@ import type { Installation } from '../board/boardModel.js';
 import type { PhaseNaming } from '../board/conventions/phaseNames.js';
 import { conventionsOf } from '../board/conventions/boardConventions.js';
 import { InputError, inputIssue, type InputIssue } from '../errors.js';
+import { bankPartIndices, listedBanksInService, type ListedBankInService } from '../analysis/banksInServiceWords.js';
 import { boardOfInstallation } from '../network/installationModel.js';
 import { NOISE_FLOOR_RELATIVE } from '../analysis/noiseFloor.js';
 import { boardNamesOf, flattenLoads, loadLookup } from './installationColumns.js';
@@ -39,6 +40,8 @@ export interface InstallationScenarioResult {
   readonly boards: readonly InstallationScenarioBoard[];
   /** How the file names its phases (L1/L2/L3 or A/B/C): renderers label lines this way. */
   readonly phaseNames: PhaseNaming;
+  /** The banks the file lists in service (harmonics.banks), as listed in every scenario. */
+  readonly banksInService: readonly ListedBankInService[];
 }
 
 const EXPECTED_LOAD = 'a load name on one board, "<board>/<load>", or a group from profile.groups';
@@ -74,10 +77,20 @@ export function studyInstallationScenarios(installation: Installation, profile: 
       return { loads, scale };
     }),
   );
+  // The banks the file lists in service are as listed in every scenario: no scenario scales them.
+  const inService = bankPartIndices(installation);
+  named.forEach((entries, k) =>
+    entries.forEach(({ loads }, e) => {
+      const part = loads.find((l) => inService.includes(l));
+      if (part !== undefined)
+        issues.push(inputIssue('scales_bank_in_service', `profile.scenarios[${k}].loads.${Object.keys(scenarios[k]!.loads)[e]}`, `loads and groups without "${flat.loads[part]!.name}": it is part of a capacitor bank the file lists in service (harmonics.banks), in service in every scenario as listed`, flat.loads[part]!.name));
+    }),
+  );
   if (issues.length) throw new InputError(issues, 'the scenarios are not valid');
   const { drivers, columns } = scenarioDrivers(flat.loads, scenarios, (s) => {
     const scales = new Float64Array(flat.loads.length).fill(s.others ?? 0);
     for (const { loads, scale } of named[scenarios.indexOf(s)]!) for (const l of loads) scales[l] = scale;
+    for (const l of inService) scales[l] = 1;
     return scales;
   });
   const figures = allocateBoardFigures(installation, scenarios.length);
@@ -113,5 +126,6 @@ export function studyInstallationScenarios(installation: Installation, profile: 
       };
     }),
     phaseNames: conventionsOf(installation.main).phaseNames,
+    banksInService: listedBanksInService(installation),
   };
 }

@@ -40,8 +40,7 @@ import { termBoundFor } from './termBounds.js';
 import { installationInCondition, moveInstallationCircuits } from './applyMoves.js';
 import type { BoardVoltageComparison, CapacityExcess, CircuitMove, ConditionComparison, MoveTableRow, RebalanceReport } from './rebalanceResult.js';
 import { REBALANCE_CAUTIONS, REBALANCE_NOTES } from './rebalanceWording.js';
-import { bankInServiceWords } from '../analysis/banksInServiceWords.js';
-import { ratedKvarInService } from '../network/installationModel.js';
+import { bankInServiceWords, listedBanksInService } from '../analysis/banksInServiceWords.js';
 
 const optionsSchema = z.strictObject({
   method: z.enum(['auto', 'exact', 'local-search']).optional(),
@@ -411,7 +410,7 @@ export function rebalanceInstallation(installation: Installation, study: unknown
   const label = labellerOf(conventionsOf(tree.boards[0]!).phaseNames);
   // Banks the file lists in service (harmonics.banks) are loads of their boards, as trivar solve has them.
   if (installation.banksInService?.length)
-    notes.push(REBALANCE_NOTES.banksInService(installation.banksInService.map((b) => bankInServiceWords({ ...b, board: tree.names[b.boardIndex]!, ratedKvarInService: ratedKvarInService(b) }))));
+    notes.push(REBALANCE_NOTES.banksInService(listedBanksInService(installation).map((b) => bankInServiceWords(b))));
   if (n === 0) notes.push(REBALANCE_NOTES.nothingToMove);
   else if (moves.length === 0) notes.push(REBALANCE_NOTES.alreadyBest);
   if (chosen.exactRan && !chosen.proven && chosen.nodes > o.nodeBudget) notes.push(REBALANCE_NOTES.budgetReached(o.nodeBudget));

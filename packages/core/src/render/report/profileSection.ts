@@ -3,6 +3,7 @@
  * installation: an overview (a row per board, the feeder loading, the bank) and a section per board
  * with the same blocks a board's study has, its currents being its incomer's.
  */
+import { bankInServiceWords, BANKS_IN_SERVICE_BASIS } from '../../analysis/banksInServiceWords.js';
 import type { ProfileBankResult, ProfileResult } from '../../profile/studyProfile.js';
 import type { InstallationProfileResult } from '../../profile/studyInstallationProfile.js';
 import type { ProfileSummary, ResolvedLimits } from '../../profile/summariseFigures.js';
@@ -109,7 +110,14 @@ export function installationProfileSections(
   const peakLine = (s: ProfileSummary) => Math.max(...s.conductors.filter((c) => c.conductor !== 'N').map((c) => c.maxA));
   const main = r.boards[0]!;
   const overview: ReportBlock[] = [
-    { kind: 'facts', items: [['Intervals', intervalWords(r)], ['Boards', `${r.boards.length}, every board and feeder solved at once in each interval`]] },
+    {
+      kind: 'facts',
+      items: [
+        ['Intervals', intervalWords(r)],
+        ['Boards', `${r.boards.length}, every board and feeder solved at once in each interval`],
+        ...(r.banksInService.length ? [['Capacitor banks in service', `in every interval, ${BANKS_IN_SERVICE_BASIS}: ${r.banksInService.map((b) => bankInServiceWords(b)).join('; ')}`] as [string, string]] : []),
+      ],
+    },
     {
       kind: 'table',
       caption: "Boards over the period: the supply at the main board, each sub-board's incoming feeder",
