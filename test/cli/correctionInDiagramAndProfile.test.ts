@@ -111,14 +111,16 @@ describe('what cannot be drawn or simulated truly is refused, saying why and wha
   });
 
   it('no unit suits the bank: nothing as built to draw or simulate', () => {
-    // quay-street's compensator: no catalogue unit fits its line-to-neutral branches; before, a part of it was drawn
-    // and its line-to-line trims alone "simulated" — an empty run with no bank section and exit 0.
-    const file = write('quay-compensator.yaml', withArrangement(example('quay-street-flats.yaml'), 'balancing-compensator'));
+    // quay-street's compensator with a catalogue of three-phase 440 V units only: no unit fits its line-to-neutral
+    // branches; before, a part of it was drawn and its line-to-line trims alone "simulated" — an empty run with no
+    // bank section and exit 0.
+    const threePhaseOnly = '  catalogue: [{ kind: three-phase, ratedKvar: 10, ratedV: 440, ratedHz: 50 }]\n';
+    const file = write('quay-compensator.yaml', withArrangement(example('quay-street-flats.yaml'), 'balancing-compensator').replace(/^correction:\n/m, `correction:\n${threePhaseOnly}`));
     expect(JSON.parse(runTrivar(['correct', file, '--json']).stdout).status).toBe('no-suitable-units');
     const drawn = runTrivar(['diagram', file, '--with-correction']);
     expect(drawn.code).toBe(2);
     noTrace(drawn.stderr);
-    expect(drawn.stderr).toMatch(/^error: --with-correction: no unit of the catalogue suits the balancing compensator \(no unit in the built-in typical IEC catalogue \(50 Hz\) fits A-N, B-N: .*\), so there is no correction as built to draw/);
+    expect(drawn.stderr).toMatch(/^error: --with-correction: no unit of the catalogue suits the balancing compensator \(no unit in the catalogue given in the correction fits A-N, B-N: .*\), so there is no correction as built to draw/);
     expect(drawn.stderr).toContain('give a catalogue (correction.catalogue) or name another arrangement (correction.arrangement)');
     const run = runTrivar(['profile', file, '--data', quayData, '--correction-bank']);
     expect(run.code).toBe(2);

@@ -5,7 +5,7 @@
  * practice, no source); Steinmetz compensator: methods notes §1.3.
  */
 import { describe, expect, it } from 'vitest';
-import { correctBoard } from '@trivar/core';
+import { correctBoard, normaliseBoard, parseBoard } from '@trivar/core';
 import { expectClose } from '../support/tolerance.js';
 import { flatsWithPv, heaterOnA, house240, officePanel208, plant480, plant600, resistiveBoard, steinmetzBoard, workshop400 } from './support/fieldBoards.js';
 
@@ -48,9 +48,10 @@ describe('banks as bought and installed', () => {
     const star = correctBoard(plant600, { arrangement: 'star-bank' });
     expect(star.status).toBe('no-suitable-units');
     expect(star.reasons[0]).toMatch(/no unit in the built-in typical North-American catalogue \(60 Hz\) fits A-N, B-N, C-N: a unit there must be rated at least 346\.4 V/);
-    // The way out named with its figure: the nearest rating's share at the applied voltage, (V/480)^2.
-    const applied = star.selection!.unbuildable!.appliedV;
-    const share = 100 * (applied / 480) ** 2;
+    // The way out named with its figure: the nearest rating's share at the nominal 346.4 V across it, (V/480)^2.
+    const nominal = star.selection!.unbuildable!.floorV;
+    expect(nominal).toBeCloseTo(600 / Math.sqrt(3), 9);
+    const share = 100 * (nominal / 480) ** 2;
     expect(star.reasons[0]).toContain(`the nearest, 480 V, delivers ${share.toFixed(1)} % there (a deliveryFloorPercent of ${Math.floor(share)} in the correction accepts it)`);
     const accepted = correctBoard(plant600, { arrangement: 'star-bank', deliveryFloorPercent: Math.floor(share) });
     expect(accepted.status).not.toBe('no-suitable-units');
@@ -105,5 +106,38 @@ describe('verdicts that agree with the figures', () => {
     expect(Math.abs(q1Before)).toBeLessThan(1e-3 * r.verification.before.totals.kVA);
     expect(ideal!.residual.positiveSequencePf!).toBeGreaterThan(0.99999);
     for (const l of r.idealVerification!.lines) expect(l.pf.after).toBeGreaterThan(0.9999);
+  });
+});
+
+describe('the delivery floor is judged at the nominal voltage across the unit', () => {
+  // An uneven 230/400 V workshop board (invented) whose line C sits 2.7 % low under load: 280 V units,
+  // the usual rating for 230 V (IEC practice: at least 230.9 V + 10 % = 254 V), give (230.94/280)^2 = 68.0 %
+  // of their nameplate at nominal voltage, but (224.6/280)^2 = 64.3 % at the solved 224.6 V. Judged at the
+  // solved voltage the floor of 65 % refused every unit on C-N and the bank missed its target there.
+  const loads = [
+    ['C-N', 8, 0.71], ['C-N', 7.9, 0.7], ['A-N', 1.9, 0.78], ['B-C', 7, 0.91], ['A-N', 5.8, 0.93], ['C-A', 5.7, 0.94], ['B-C', 2.3, 0.93],
+    ['C-A', 1.2, 0.84], ['A-B', 5.3, 0.7], ['B-N', 8.6, 0.78], ['B-N', 4.4, 0.75], ['B-C', 5.8, 0.83], ['C-N', 1.2, 0.72], ['ABC-delta', 9.2, 0.8],
+  ].map(([connection, kW, pf], k) => ({ name: `circuit ${k + 1}`, connection, kW, pf }));
+  const workshop = normaliseBoard(
+    parseBoard({
+      name: 'uneven workshop',
+      supply: { system: 'three-phase-4wire', voltage: { lineToLine: 400 }, frequencyHz: 50, transformer: { kVA: 250, impedancePercent: 4, xOverR: 3 } },
+      feeder: { line: { r: 0.02, x: 0.01 }, neutral: { r: 0.03, x: 0.01 } },
+      loads,
+    }),
+  );
+
+  it('280 V units on every branch, C-N included, and the per-line target met', () => {
+    const r = correctBoard(workshop, { arrangement: 'star-bank', target: { pf: 0.95 } });
+    // The voltage the sizing sized C-N at (the solved board with the bank's continuous sizing in).
+    const cn = (r.sizing.arrangement === 'star-bank' ? r.sizing.branches : []).find((b) => b.branch === 'C-N')!;
+    expect(cn.appliedV).toBeCloseTo(224.6, 1);
+    expect((100 * (cn.appliedV / 280) ** 2).toFixed(1)).toBe('64.3');
+    expect((100 * (workshop.nominalLineToNeutralV / 280) ** 2).toFixed(1)).toBe('68.0');
+    expect(r.selection!.unbuildable).toBeNull();
+    expect(r.selection!.steps.every((s) => s.unit.ratedV === 280)).toBe(true);
+    expect(r.selection!.selections.find((s) => s.branch === 'C-N')!.units).toBeGreaterThan(0);
+    expect(['meets-target', 'meets-target-at-nominal-capacitance']).toContain(r.status);
+    for (const l of r.verification.lines) expect(l.pf.after!).toBeGreaterThanOrEqual(0.95);
   });
 });

@@ -114,7 +114,15 @@ describe('correction laws over random lagging boards', () => {
       fc.property(laggingBoardArb({ source: 'ideal' }), fc.double({ min: 0.9, max: 1, noNaN: true }), (board, pf) => {
         const sizing = sizeBalancingCompensator(board, { target: { pf } });
         for (const b of sizing.capacitorOnly.branches) expect(b.susceptanceS).toBeGreaterThanOrEqual(0);
-        expect(sizing.ideal.residual.negativeSequenceCurrentPercent).toBeLessThan(1e-6);
+        // The ideal solution is exact unless a negligible branch was left out (negligibleBranches.ts: below 1 % of
+        // the compensator, and no target it met is missed without it); then its |I2| is what the sizing says
+        // leaving the last one out gave.
+        const leftOut = sizing.smallBranches.filter((b) => b.leftOut);
+        if (leftOut.length === 0) expect(sizing.ideal.residual.negativeSequenceCurrentPercent).toBeLessThan(1e-6);
+        else {
+          expect(sizing.ideal.residual.negativeSequenceCurrentPercent).toBeCloseTo(leftOut.at(-1)!.effect.without.negativeSequenceCurrentPercent, 9);
+          for (const b of leftOut) expect(b.effect.missedWithout).toEqual([]);
+        }
         // The objective with no compensator is that of the uncorrected board; the optimum can only be lower.
         expect(sizing.capacitorOnly.objective).toBeLessThanOrEqual(objectiveOfNothing(board, sizing) + 1e-9);
       }),

@@ -144,7 +144,7 @@ function selectionBlock(sel: BankSelection, label: PhaseLabeller): string {
   out.push(
     indentLines([
       `units from the ${sel.catalogueTitle}${sel.catalogue === 'typical' ? ` — ${sel.catalogueNote}` : ''}`,
-      `unit rating ≥ nominal voltage + ${fixed(sel.voltageMarginPercent, 0)} % (${sel.practice === 'iec' ? 'IEC' : 'North-American'} practice) and ≥ highest solved voltage / ${fixed(sel.continuousLimitPercent / 100, 2)}; every unit delivers ≥ ${fixed(sel.deliveryFloorPercent, 0)} % of its nameplate; capacitance tolerance −${sel.capacitanceTolerance.minusPercent} % / +${sel.capacitanceTolerance.plusPercent} %`,
+      `unit rating ≥ nominal voltage + ${fixed(sel.voltageMarginPercent, 0)} % (${sel.practice === 'iec' ? 'IEC' : 'North-American'} practice) and ≥ highest solved voltage / ${fixed(sel.continuousLimitPercent / 100, 2)}; every unit delivers ≥ ${fixed(sel.deliveryFloorPercent, 0)} % of its nameplate at nominal voltage; capacitance tolerance −${sel.capacitanceTolerance.minusPercent} % / +${sel.capacitanceTolerance.plusPercent} %`,
       `chosen for ${sel.cost.statement} (cost ${fixed(sel.cost.value, 1)})`,
     ]),
   );

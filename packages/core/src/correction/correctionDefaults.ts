@@ -37,8 +37,9 @@ export const CORRECTION_DEFAULTS = {
    */
   ckSettingFraction: 0.65,
   /**
-   * A unit must deliver at least this share of its nameplate where it is used:
-   * below about two thirds the square law wastes more than a third of what is
+   * A unit must deliver at least this share of its nameplate at the nominal voltage
+   * across it (the rating is chosen for the system, not for a board a few per cent
+   * low): below about two thirds the square law wastes more than a third of what is
    * bought. 480 V units on 400 V (69 %) and 280 V units on 230 V (67 %) pass;
    * 525 V on 400 V (58 %), 600 V on 480 V (64 %) and 690 V on 230 V (11 %) do not
    * (common practice, no source).

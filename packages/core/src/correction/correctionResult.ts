@@ -312,7 +312,10 @@ export interface BranchSelection {
 export interface UnbuildableBranches {
   readonly branches: readonly string[];
   readonly requiredRatedV: number;
+  /** Lowest solved voltage across those branches, V. */
   readonly appliedV: number;
+  /** Where the delivery floor is judged, V: the nominal voltage across them (on a floating star, the solved one). */
+  readonly floorV: number;
   readonly message: string;
 }
 

@@ -152,7 +152,7 @@ export const correctionSpecSchema = z
       .min(0)
       .max(100)
       .optional()
-      .describe('a unit must deliver at least this share of its nameplate kvar where it is used, %; default 65'),
+      .describe('a unit must deliver at least this share of its nameplate kvar at the nominal voltage across it, %; default 65'),
     capacitanceTolerance: toleranceSchema.optional(),
     voltageMarginPercent: percent
       .max(100)

@@ -233,18 +233,18 @@ export const selectionWording = {
   typicalNote:
     'typical ratings, not any vendor\'s range: check the real ratings, tolerance and discharge time of the units you buy',
   userNote: 'units from the catalogue given',
-  noUnit: (branches: readonly PhaseLabel[], neededV: number, appliedV: number, catalogue: string, floorPercent: number, ratings: readonly number[]) => {
-    const highestV = appliedV / Math.sqrt(floorPercent / 100);
+  noUnit: (branches: readonly PhaseLabel[], neededV: number, nominalV: number, floating: boolean, catalogue: string, floorPercent: number, ratings: readonly number[]) => {
+    const highestV = nominalV / Math.sqrt(floorPercent / 100);
     // The way out the user controls: the lowest rating the voltage rule allows, and the floor that would take it.
     const nearest = ratings.find((v) => v >= neededV);
-    const delivers = nearest === undefined ? 0 : 100 * (appliedV / nearest) ** 2;
+    const delivers = nearest === undefined ? 0 : 100 * (nominalV / nearest) ** 2;
     const remedy =
       neededV > highestV
-        ? `; no rating meets both at this voltage: only a lower deliveryFloorPercent in the correction does (${Math.floor(100 * (appliedV / neededV) ** 2)} for a ${f1(neededV)} V unit)`
+        ? `; no rating meets both at this voltage: only a lower deliveryFloorPercent in the correction does (${Math.floor(100 * (nominalV / neededV) ** 2)} for a ${f1(neededV)} V unit)`
         : nearest !== undefined && Math.floor(delivers) >= 1
         ? `; the nearest, ${nearest} V, delivers ${delivers.toFixed(1)} % there (a deliveryFloorPercent of ${Math.floor(delivers)} in the correction accepts it), or give a catalogue with units rated ${f1(neededV)}–${f1(highestV)} V`
         : `; give a catalogue with units rated ${f1(neededV)}–${f1(highestV)} V`;
-    return `no unit in the ${catalogue} fits ${branches.join(', ')}: a unit there must be rated at least ${f1(neededV)} V and still deliver ${floorPercent.toFixed(0)} % of its nameplate at ${f1(appliedV)} V, i.e. be rated at most ${f1(highestV)} V; the catalogue has ${ratings.map((v) => `${v}`).join(', ')} V${remedy}`;
+    return `no unit in the ${catalogue} fits ${branches.join(', ')}: a unit there must be rated at least ${f1(neededV)} V and still deliver ${floorPercent.toFixed(0)} % of its nameplate at ${floating ? `the ${f1(nominalV)} V across it as solved (the star point floats)` : `the nominal ${f1(nominalV)} V across it`}, i.e. be rated at most ${f1(highestV)} V; the catalogue has ${ratings.map((v) => `${v}`).join(', ')} V${remedy}`;
   },
   costStatement: (unitCostKvar: number) =>
     `least cost = nameplate kvar + ${unitCostKvar} kvar-equivalent per unit bought, among the builds that best fit the tolerance window, the controller outputs and the minimum step`,

@@ -12,7 +12,8 @@
  * Rules, per branch:
  * - rating ≥ (1 + margin) × nominal voltage across the unit (margin by practice)
  *   and the highest solved voltage ≤ 110 % of rating (IEEE 18 / IEC 60831-1);
- * - a unit delivers at least the delivery floor of its nameplate where it is used;
+ * - a unit delivers at least the delivery floor of its nameplate at the nominal voltage across it (on a
+ *   floating star, at its solved voltage);
  * - the design state (everything on at the design load) reaches C_req/(1 − tol⁻)
  *   and stays ≤ C_limit/(1 + tol⁺) (see `tierOf` for the order of compromises);
  * - the fixed part stays within what the light load can take at +tol;
@@ -53,7 +54,7 @@ export interface SelectBankUnitsOptions {
   readonly capacitanceTolerance?: CapacitanceToleranceSpec;
   /** Rated voltage above the nominal voltage across a unit, %. @defaultValue 10 (iec) or 0 (north-american) */
   readonly voltageMarginPercent?: number;
-  /** Least share of its nameplate a unit must deliver where used, %. @defaultValue 65 */
+  /** Least share of its nameplate a unit must deliver at the nominal voltage across it, %. @defaultValue 65 */
   readonly deliveryFloorPercent?: number;
   /**
    * The same sizing run on the light-load board. Its limit (or value) per
@@ -168,7 +169,11 @@ export function selectBankUnits(sized: SizedEquipment, options?: SelectBankUnits
     const lightLimit = light ? Math.max(0, light.limitSusceptanceS ?? light.susceptanceS) : 0;
     const fixedMaxF = Math.min(lightLimit / omega / (1 + plus), minF);
     const need: Need = { nominalF: requiredF, minF, maxF, limitF, fixedMaxF };
-    return { b, slot, highestVoltageV, requiredRatedV, need, capacitor };
+    // Where the delivery floor is judged: the nominal voltage across the unit, as the rating is chosen for
+    // the system (a board a few per cent low would otherwise refuse the usual rating, 280 V units on 230 V,
+    // for a sag); on a floating star, the solved voltage, as its star point moves with the bank itself.
+    const floorV = slot.to === 'star' ? b.appliedV : slot.vNominal;
+    return { b, slot, highestVoltageV, requiredRatedV, need, capacitor, floorV };
   });
 
   // Sets: a three-branch group is one three-phase set, anything else one set per branch.
@@ -185,7 +190,7 @@ export function selectBankUnits(sized: SizedEquipment, options?: SelectBankUnits
   const fits = (u: CatalogueUnit, indices: readonly number[]) =>
     indices.every((i) => {
       const info = branchInfo[i]!;
-      const delivered = (info.b.appliedV / u.ratedV) ** 2 * (hz / u.ratedHz);
+      const delivered = (info.floorV / u.ratedV) ** 2 * (hz / u.ratedHz);
       return u.ratedV >= info.requiredRatedV * (1 - 1e-12) && delivered >= floor - 1e-12;
     });
   const choiceOf = (usable: Usable, unitsPerCount: number): UnitChoice => ({ unit: usable.unit, index: usable.index, elementF: elementF(usable.unit), unitsPerCount });
@@ -233,6 +238,10 @@ export function selectBankUnits(sized: SizedEquipment, options?: SelectBankUnits
       unbuildable.push(...set.indices.filter((i) => branchInfo[i]!.capacitor));
       continue;
     }
+    // A capacitor branch no unit suits (its voltage is lower than its neighbours', so a unit that delivers
+    // enough there does not on it) is unbuildable, not "short of the target": the others are still built.
+    const uncovered = balancedChoices.length ? [] : set.indices.filter((i, k) => branchInfo[i]!.capacitor && !trimChoices[k]!.length);
+    unbuildable.push(...uncovered);
     const build = searchSet(
       infos.map((x) => x.need),
       balancedChoices,
@@ -248,6 +257,7 @@ export function selectBankUnits(sized: SizedEquipment, options?: SelectBankUnits
     builds.push({ set, build });
     const names = set.indices.map((i) => label(branchInfo[i]!.b.branch));
     build.tiers.forEach((tier, k) => {
+      if (uncovered.includes(set.indices[k]!)) return;
       const name = names[k]!;
       if (tier === 1 || tier === 2) warn('tolerance-window', warningText.windowMissed(name));
       if (shortOfTarget(tier) && build.needs[k]!.minF > 0) warn('units-below-target', warningText.unitsBelowTarget(name));
@@ -314,12 +324,15 @@ export function selectBankUnits(sized: SizedEquipment, options?: SelectBankUnits
   if (unbuildable.length) {
     const requiredRatedV = Math.max(...unbuildable.map((i) => branchInfo[i]!.requiredRatedV));
     const appliedV = Math.min(...unbuildable.map((i) => branchInfo[i]!.b.appliedV));
+    const floorV = Math.min(...unbuildable.map((i) => branchInfo[i]!.floorV));
+    const floating = unbuildable.some((i) => branchInfo[i]!.slot.to === 'star');
     const names = unbuildable.map((i) => branchInfo[i]!.b.branch);
     unbuildableInfo = {
       branches: names,
       requiredRatedV,
       appliedV,
-      message: selectionWording.noUnit(names.map(label), requiredRatedV, appliedV, catalogueTitle, floor * 100, [...new Set(all.map((u) => u.unit.ratedV))].sort((a, b) => a - b)),
+      floorV,
+      message: selectionWording.noUnit(names.map(label), requiredRatedV, floorV, floating, catalogueTitle, floor * 100, [...new Set(all.map((u) => u.unit.ratedV))].sort((a, b) => a - b)),
     };
   }
   if (sized.branches.some((b) => b.element === 'reactor')) warn('reactors-not-selected', warningText.reactorsNotSelected);
