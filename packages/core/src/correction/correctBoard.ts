@@ -118,6 +118,15 @@ export function correctBoard(board: Board, spec: unknown): CorrectionReport {
   const spread = buildable(sizing);
   const needsUnits = sizing.status !== 'already-meets-target' && spread.branches.some((b) => b.element === 'capacitor');
   const scaled = parsed.lightLoad ? scaleBoardLoads(board, parsed.lightLoad) : null;
+  // The light-load sizing a build's limits come from, once per set of branches held out (both roundings share one).
+  const lightSizings = new Map<string, SizedEquipment>();
+  const lightSizedFor = (heldBranches: readonly string[] | undefined): SizedEquipment | undefined => {
+    if (!scaled) return undefined;
+    const key = (heldBranches ?? []).join(' ');
+    let light = lightSizings.get(key);
+    if (!light) lightSizings.set(key, (light = buildable(sizeArrangement(scaled, parsed, { limitsOnly: true, ...(heldBranches ? { heldBranches } : {}) }))));
+    return light;
+  };
   const selectUnits = (sized: SizedEquipment, how: { heldBranches?: readonly string[]; besideReactors?: 'up' } = {}): BankSelection =>
     selectBankUnits(
       sized,
@@ -132,7 +141,7 @@ export function correctBoard(board: Board, spec: unknown): CorrectionReport {
         capacitanceTolerance: parsed.capacitanceTolerance,
         voltageMarginPercent: parsed.voltageMarginPercent,
         deliveryFloorPercent: parsed.deliveryFloorPercent,
-        lightLoad: scaled ? buildable(sizeArrangement(scaled, parsed, { limitsOnly: true, ...(how.heldBranches ? { heldBranches: how.heldBranches } : {}) })) : undefined,
+        lightLoad: lightSizedFor(how.heldBranches),
         phaseNames,
         besideReactors: how.besideReactors,
       }),
@@ -191,7 +200,8 @@ export function correctBoard(board: Board, spec: unknown): CorrectionReport {
    * better verdict or the same at no higher cost: a capacitor-only compensator that also works on fewer
    * branches (units round differently on different branches, so fewer can cost more), and one with
    * reactors, whose capacitors are rounded down to their requirement (the reactors as sized then
-   * balance them) or up (the reactors sized again around them; rounded down, the PF falls short).
+   * balance them) or, where that build does not meet the target across the tolerance, up (the reactors
+   * sized again around them; rounded down, the PF falls short).
    */
   function chooseBuild(): { build: Build; fewerBranchesBuild: FewerBranchesBuild | null; roundingBesideReactors: RoundingBesideReactors | null } {
     if (!needsUnits) return { build: buildOf(spread, null), fewerBranchesBuild: null, roundingBesideReactors: null };
@@ -207,7 +217,8 @@ export function correctBoard(board: Board, spec: unknown): CorrectionReport {
         roundingBesideReactors: null,
       };
     }
-    if (sizing.recommended === 'ideal' && spread.branches.some((b) => b.element === 'reactor')) {
+    // Rounding up is for a build that rounding down leaves short: one that meets across the tolerance is kept.
+    if (sizing.recommended === 'ideal' && spread.branches.some((b) => b.element === 'reactor') && base.verdict !== 'meets') {
       const up = buildOf(spread, selectUnits(spread, { besideReactors: 'up' }));
       const used = keeps(up, base) && !(up.verdict === base.verdict && up.cost === base.cost);
       return {

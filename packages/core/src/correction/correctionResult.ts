@@ -487,9 +487,10 @@ export interface CorrectionReport {
    */
   readonly fewerBranchesBuild: FewerBranchesBuild | null;
   /**
-   * Balancing compensator built with reactors: its capacitors rounded down to their requirement (the
-   * reactors as sized) or up (the reactors sized again around them), the better verdict kept, then the
-   * lower cost. Null otherwise.
+   * Balancing compensator built with reactors whose capacitors, rounded down to their requirement (the
+   * reactors as sized), do not meet the target across the tolerance: the same rounded up (the reactors
+   * sized again around them) weighed against it, the better verdict kept, then the lower cost. Null
+   * otherwise (rounded down meets it: up is not tried).
    */
   readonly roundingBesideReactors: RoundingBesideReactors | null;
   readonly warnings: readonly CorrectionWarning[];
