@@ -7,6 +7,7 @@ import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import { buildBoardReport, compareCorrections, correctBoard, normaliseBoard, parseBoard, readBoardText, renderReportHtml, solveBoardModel } from '@trivar/core';
 import { ROOT, runTrivar } from './runTrivar.js';
+import { behindTransformer } from '../correction/support/boards.js';
 
 const boardOf = (file: string) => {
   const spec = parseBoard(readBoardText(readFileSync(`${ROOT}${file}`, 'utf8')));
@@ -66,18 +67,11 @@ describe('correct report wording', () => {
 
   it('a compensator whose unit-built capacitors miss beside exact reactors says why, and what re-sizing the reactors did', () => {
     // A potter's workshop (invented) with every circuit on line B: wheel, kiln controller, pug mill.
-    const board = normaliseBoard(
-      parseBoard({
-        name: 'pottery',
-        supply: { system: 'three-phase-4wire', voltage: { lineToLine: 400 }, frequencyHz: 50, transformer: { kVA: 250, impedancePercent: 4, xOverR: 3 } },
-        feeder: { line: { r: 0.02, x: 0.01 }, neutral: { r: 0.03, x: 0.01 } },
-        loads: [
-          { name: 'wheel', connection: 'B-N', kW: 2.7, pf: 0.93 },
-          { name: 'kiln controller', connection: 'B-N', kW: 4.4, pf: 0.89 },
-          { name: 'pug mill', connection: 'B-N', kW: 2, pf: 0.79 },
-        ],
-      }),
-    );
+    const board = behindTransformer('pottery', [
+      { name: 'wheel', connection: 'B-N', kW: 2.7, pf: 0.93 },
+      { name: 'kiln controller', connection: 'B-N', kW: 4.4, pf: 0.89 },
+      { name: 'pug mill', connection: 'B-N', kW: 2, pf: 0.79 },
+    ]);
     const r = correctBoard(board, { arrangement: 'balancing-compensator', target: { pf: 0.95 } });
     expect(r.status).toBe('misses-target-with-available-units');
     // Rounded up did no better, so the cheaper rounding down is built.

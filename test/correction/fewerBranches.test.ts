@@ -6,8 +6,8 @@
  * units and keeps the better verdict, then the lower cost.
  */
 import { describe, expect, it } from 'vitest';
-import { correctBoard, sizeBalancingCompensator, solveBoardModel, normaliseBoard, parseBoard, type CompensatorSolution } from '@trivar/core';
-import { makeBoard } from './support/boards.js';
+import { correctBoard, sizeBalancingCompensator, solveBoardModel, type CompensatorSolution } from '@trivar/core';
+import { behindTransformer, makeBoard } from './support/boards.js';
 import { renderCorrectionReport } from '../../packages/cli/src/format/correctionReport.js';
 
 const built = (s: CompensatorSolution) => s.branches.filter((b) => b.element !== 'none');
@@ -86,14 +86,7 @@ describe('fewer branches that cost more from units: every branch is built', () =
     { name: 'extraction', connection: 'C-N', kW: 4.9, pf: 0.84 },
     { name: 'press drive', connection: 'ABC-delta', kW: 24.9, pf: 0.8 },
   ];
-  const board = normaliseBoard(
-    parseBoard({
-      name: 'print works',
-      supply: { system: 'three-phase-4wire', voltage: { lineToLine: 400 }, frequencyHz: 50, transformer: { kVA: 250, impedancePercent: 4, xOverR: 3 } },
-      feeder: { line: { r: 0.02, x: 0.01 }, neutral: { r: 0.03, x: 0.01 } },
-      loads,
-    }),
-  );
+  const board = behindTransformer('print works', loads);
   const report = correctBoard(board, { arrangement: 'balancing-compensator', target: { pf: 0.95 } });
 
   it('both builds meet the target; the one on every branch costs less and is built', () => {

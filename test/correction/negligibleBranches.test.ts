@@ -19,9 +19,7 @@ import {
   checkTarget,
   correctBoard,
   CORRECTION_DEFAULTS,
-  normaliseBoard,
   normaliseInstallation,
-  parseBoard,
   parseInstallation,
   readBoardText,
   solveBoardModel,
@@ -30,6 +28,7 @@ import {
 } from '@trivar/core';
 import { renderCorrectionReport } from '../../packages/cli/src/format/correctionReport.js';
 import { laggingBoardArb, runs } from './support/arbitraries.js';
+import { behindTransformer } from './support/boards.js';
 
 const works = normaliseInstallation(parseInstallation(readBoardText(readFileSync(new URL('../../examples/tannery-lane-works.yaml', import.meta.url), 'utf8')))).installation;
 const offices = boardOfInstallation(works, works.subBoards.findIndex((b) => b.name === 'Offices') + 1);
@@ -137,14 +136,7 @@ describe('a build whose reactors are re-sized: the report\'s "branch a → b kva
     { name: 'jigger 2', connection: 'A-N', kW: 6.3, pf: 0.84 },
     { name: 'drive', connection: 'ABC-delta', kW: 17.4, pf: 0.8 },
   ];
-  const board = normaliseBoard(
-    parseBoard({
-      name: 'dye works',
-      supply: { system: 'three-phase-4wire', voltage: { lineToLine: 400 }, frequencyHz: 50, transformer: { kVA: 250, impedancePercent: 4, xOverR: 3 } },
-      feeder: { line: { r: 0.02, x: 0.01 }, neutral: { r: 0.03, x: 0.01 } },
-      loads,
-    }),
-  );
+  const board = behindTransformer('dye works', loads);
   const r = correctBoard(board, { arrangement: 'balancing-compensator', target: { pf: 0.95 } });
   const c = r.sizing as CompensatorSizing;
 

@@ -40,3 +40,18 @@ export const bakeryLoads: readonly LoadLine[] = [
   { name: 'proofer', connection: 'C-N', kW: 7, pf: 0.86 },
   { name: 'cold room compressor', connection: 'ABC-delta', kW: 12, pf: 0.78 },
 ];
+
+/**
+ * An invented 230/400 V board behind a 250 kVA, 4 %, X/R 3 transformer and a short feeder (line 0.02 + j0.01 Ω,
+ * neutral 0.03 + j0.01 Ω): where the correction tests' uneven workshops sit, a few per cent below nominal.
+ */
+export function behindTransformer(name: string, loads: readonly LoadLine[]): Board {
+  return normaliseBoard(
+    parseBoard({
+      name,
+      supply: { system: 'three-phase-4wire', voltage: { lineToLine: 400 }, frequencyHz: 50, transformer: { kVA: 250, impedancePercent: 4, xOverR: 3 } },
+      feeder: { line: { r: 0.02, x: 0.01 }, neutral: { r: 0.03, x: 0.01 } },
+      loads,
+    }),
+  );
+}
