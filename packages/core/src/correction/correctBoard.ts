@@ -244,7 +244,7 @@ export function correctBoard(board: Board, spec: unknown): CorrectionReport {
   else if (selection?.unbuildable) {
     status = 'no-suitable-units';
     reasons.push(selection.unbuildable.message);
-  } else if (!verification.check.met || (balance && !balance.met)) {
+  } else if (chosen.verdict === 'misses') {
     status = 'misses-target-with-available-units';
     reasons.push(infeasibleReason.unitsMissTarget([...verification.check.shortfalls, ...(balance?.shortfalls ?? [])]));
     // Rounded down beside the reactors (kept at their continuous values the capacitors may not pass their
@@ -263,9 +263,7 @@ export function correctBoard(board: Board, spec: unknown): CorrectionReport {
           ),
         );
     }
-  } else if (!verification.tolerance.low.check.met || verification.tolerance.high.check.leadingLines.length > 0)
-    status = 'meets-target-at-nominal-capacitance';
-  else status = 'meets-target';
+  } else status = chosen.verdict === 'meets-at-nominal' ? 'meets-target-at-nominal-capacitance' : 'meets-target';
   // "A line that already led may not lead more" is meant for the one line a line-to-line load makes
   // lead; where every judged line led before (other banks in service, an over-sized fixed bank) and
   // one is still short of its minimum, capacitors cannot help, and a met target would contradict the
