@@ -167,3 +167,34 @@ describe('choosing units for a bank', () => {
     });
   });
 });
+
+describe('a branch no unit suits, beside branches that have units', () => {
+  it('is listed as unbuildable (no "short of the target" guess), the other branches still built', () => {
+    // A bakery-sized board on an ideal source; its light-load state (written by hand here) puts 300 V across
+    // C-N, so a unit there must be rated at least 300 / 1.10 = 272.7 V. The catalogue: 265 V units, which suit
+    // A-N and B-N (≥ 254 V, 80.3 % of nameplate at the nominal 230.9 V), and 300 V units, which reach 272.7 V
+    // but give (230.9/300)² = 59.3 % at nominal, under the 65 % floor. So nothing suits C-N.
+    const board = makeBoard('three-phase-4wire', [
+      { name: 'oven fans', connection: 'A-N', kW: 9, pf: 0.72 },
+      { name: 'mixer', connection: 'B-N', kW: 5.5, pf: 0.8 },
+      { name: 'proofer', connection: 'C-N', kW: 7, pf: 0.86 },
+    ]);
+    const sizing = sizeStarBank(board, { target: { pf: 0.95 } });
+    const lightLoad = { ...sizing, branches: sizing.branches.map((b) => (b.branch === 'C-N' ? { ...b, appliedV: 300 } : b)) };
+    const catalogue = [
+      { ratedKvar: 2, ratedV: 265, ratedHz: 50 as const },
+      { ratedKvar: 2, ratedV: 300, ratedHz: 50 as const },
+    ];
+    const selection = selectBankUnits(sizing, { catalogue, lightLoad });
+    expect(selection.unbuildable!.branches).toEqual(['C-N']);
+    expect(selection.unbuildable!.requiredRatedV).toBeCloseTo(300 / 1.1, 9);
+    expect(selection.unbuildable!.message).toContain('fits C-N: a unit there must be rated at least 272.7 V and still deliver 65 % of its nameplate at the nominal 230.9 V across it');
+    expect((100 * (230.94 / 300) ** 2).toFixed(1)).toBe('59.3');
+    const units = (branch: string) => selection.selections.find((s) => s.branch === branch)!.units;
+    expect(units('A-N')).toBeGreaterThan(0);
+    expect(units('B-N')).toBeGreaterThan(0);
+    expect(units('C-N')).toBe(0);
+    expect(selection.steps.every((s) => s.unit.ratedV === 265)).toBe(true);
+    expect(selection.warnings.map((w) => w.code)).not.toContain('units-below-target');
+  });
+});
