@@ -56,8 +56,8 @@ export interface ColumnPlanOptions {
   /** Keep loads that no column drives at their rating (default: off). */
   readonly undrivenAtRating?: boolean;
   /**
-   * Loads (indices) at their rating in every interval, which no column may drive: the parts of capacitor
-   * banks the file lists in service (harmonics.banks). @defaultValue none
+   * Loads (indices) at their rating in every interval: the parts of capacitor banks the file lists in
+   * service (harmonics.banks), which the installation's resolver lets no column name. @defaultValue none
    */
   readonly inService?: readonly number[];
 }
@@ -174,8 +174,6 @@ export function planTargets(header: readonly string[], ownLoads: number, resolve
       issues.push(inputIssue('bad_quantities', `header ("${name} [A]")`, 'current columns only for phases and phase-to-neutral loads (give kW or x for others)', name));
     }
     for (const l of t.loads) {
-      if (inService.has(l))
-        issues.push(inputIssue('driven_in_service', `header ("${name}")`, `loads and groups without "${loads[l]!.name}": it is part of a capacitor bank the file lists in service (harmonics.banks), in service in every interval as listed`, name));
       const other = drivenBy.get(l);
       if (other) issues.push(inputIssue('driven_twice', `header ("${name}")`, `each load driven by one column target; "${loads[l]!.name}" is also in "${other}"`, name));
       drivenBy.set(l, name);

@@ -65,9 +65,14 @@ function installationResolver(installation: Installation, groups: Readonly<Recor
   const label = labellerOf(conventionsOf(main).phaseNames);
   const lookup = loadLookup(installation);
   const loadsExpected = 'a load name on one board, "<board>/<load>", a group from profile.groups, or "phase A/B/C" at the main board ("<board>/phase A" at a sub-board; L1/L2/L3 also)';
-  /** One load for a name, or null after an issue: none, or several boards have it. */
+  const bankParts = new Set(bankPartIndices(installation));
+  /** One load for a name, or null after an issue: none, several boards have it, or it is part of a bank in service. */
   const oneLoad = (name: string, path: string, expected: string, issues: InputIssue[]): number | null => {
     const found = lookup(name);
+    if (found.length && found.every((l) => bankParts.has(l))) {
+      issues.push(inputIssue('bank_in_service', path, `a load that is not part of a capacitor bank the file lists in service (harmonics.banks): "${name}" is, and stays in service in every interval as listed`, name));
+      return null;
+    }
     if (found.length === 1) return found[0]!;
     if (found.length === 0) issues.push(inputIssue('unknown_target', path, expected, name));
     else
