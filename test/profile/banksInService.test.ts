@@ -103,6 +103,8 @@ describe('what may not drive a bank part', () => {
     shop.scenarios[0]!.lineA.forEach((a, k) => expectClose(a, banksOnly.boards[1]!.result.phases[k]!.current.magnitude, { rel: 1e-9, abs: 1e-9 }, `line ${k}`));
     expect(night.banksInService).toHaveLength(2);
     expect(() => studyInstallationScenarios(installation, { scenarios: [{ name: 'x', hours: 1, loads: { 'Machine shop/bank step 2': 0.5 } }] } as never)).toThrow(/part of a capacitor bank the file lists in service/);
+    // By the bare name two boards' banks share, too: refused as a bank part, not offered as a choice.
+    expect(() => studyInstallationScenarios(installation, { scenarios: [{ name: 'x', hours: 1, loads: { 'bank step 1': 0.5 } }] } as never)).toThrow(/"bank step 1" is, and stays in service in every scenario as listed/);
   });
 });
 

@@ -115,8 +115,8 @@ export function correctBoard(board: Board, spec: unknown): CorrectionReport {
   const label = labellerOf(phaseNames);
   const target = resolveTarget(parsed.target, board, parsed.arrangement);
   const sizing = sizeArrangement(board, parsed);
-  const spread = buildable(sizing);
-  const needsUnits = sizing.status !== 'already-meets-target' && spread.branches.some((b) => b.element === 'capacitor');
+  const asSized = buildable(sizing);
+  const needsUnits = sizing.status !== 'already-meets-target' && asSized.branches.some((b) => b.element === 'capacitor');
   const scaled = parsed.lightLoad ? scaleBoardLoads(board, parsed.lightLoad) : null;
   // The light-load sizing a build's limits come from, once per set of branches held out (both roundings share one).
   const lightSizings = new Map<string, SizedEquipment>();
@@ -204,8 +204,8 @@ export function correctBoard(board: Board, spec: unknown): CorrectionReport {
    * sized again around them; rounded down, the PF falls short).
    */
   function chooseBuild(): { build: Build; fewerBranchesBuild: FewerBranchesBuild | null; roundingBesideReactors: RoundingBesideReactors | null } {
-    if (!needsUnits) return { build: buildOf(spread, null), fewerBranchesBuild: null, roundingBesideReactors: null };
-    const base = buildOf(spread, selectUnits(spread));
+    if (!needsUnits) return { build: buildOf(asSized, null), fewerBranchesBuild: null, roundingBesideReactors: null };
+    const base = buildOf(asSized, selectUnits(asSized));
     if (sizing.arrangement !== 'balancing-compensator') return { build: base, fewerBranchesBuild: null, roundingBesideReactors: null };
     const fewer = sizing.recommended === 'capacitor-only' ? sizing.fewerBranches : null;
     if (fewer) {
@@ -218,8 +218,8 @@ export function correctBoard(board: Board, spec: unknown): CorrectionReport {
       };
     }
     // Rounding up is for a build that rounding down leaves short: one that meets across the tolerance is kept.
-    if (sizing.recommended === 'ideal' && spread.branches.some((b) => b.element === 'reactor') && base.verdict !== 'meets') {
-      const up = buildOf(spread, selectUnits(spread, { besideReactors: 'up' }));
+    if (sizing.recommended === 'ideal' && asSized.branches.some((b) => b.element === 'reactor') && base.verdict !== 'meets') {
+      const up = buildOf(asSized, selectUnits(asSized, { besideReactors: 'up' }));
       const used = keeps(up, base) && !(up.verdict === base.verdict && up.cost === base.cost);
       return {
         build: used ? up : base,

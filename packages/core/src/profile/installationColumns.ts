@@ -58,6 +58,15 @@ export function loadLookup(installation: Installation): (name: string) => number
   return (name) => byName.get(name) ?? [];
 }
 
+/**
+ * The issue for a name that stands only for parts of capacitor banks the file lists in service (they are
+ * in service as listed, so no column or scenario drives them); null for any other name.
+ */
+export function bankPartIssue(found: readonly number[], bankParts: ReadonlySet<number>, name: string, path: string, each: 'interval' | 'scenario'): InputIssue | null {
+  if (!found.length || !found.every((l) => bankParts.has(l))) return null;
+  return inputIssue('bank_in_service', path, `a load that is not part of a capacitor bank the file lists in service (harmonics.banks): "${name}" is, and stays in service in every ${each} as listed`, name);
+}
+
 function installationResolver(installation: Installation, groups: Readonly<Record<string, readonly string[]>>, boards: number[]): TargetResolver {
   const { loads } = flattenLoads(installation);
   const names = boardNamesOf(installation);
@@ -69,8 +78,9 @@ function installationResolver(installation: Installation, groups: Readonly<Recor
   /** One load for a name, or null after an issue: none, several boards have it, or it is part of a bank in service. */
   const oneLoad = (name: string, path: string, expected: string, issues: InputIssue[]): number | null => {
     const found = lookup(name);
-    if (found.length && found.every((l) => bankParts.has(l))) {
-      issues.push(inputIssue('bank_in_service', path, `a load that is not part of a capacitor bank the file lists in service (harmonics.banks): "${name}" is, and stays in service in every interval as listed`, name));
+    const bank = bankPartIssue(found, bankParts, name, path, 'interval');
+    if (bank) {
+      issues.push(bank);
       return null;
     }
     if (found.length === 1) return found[0]!;

@@ -14,7 +14,7 @@ import { InputError, inputIssue, type InputIssue } from '../errors.js';
 import { bankPartIndices, listedBanksInService, type ListedBankInService } from '../analysis/banksInServiceWords.js';
 import { boardOfInstallation } from '../network/installationModel.js';
 import { NOISE_FLOOR_RELATIVE } from '../analysis/noiseFloor.js';
-import { boardNamesOf, flattenLoads, loadLookup } from './installationColumns.js';
+import { bankPartIssue, boardNamesOf, flattenLoads, loadLookup } from './installationColumns.js';
 import { allocateBoardFigures, compileInstallationBatch, solveInstallationBatch } from './installationBatch.js';
 import type { ProfileSpec } from './profileSpec.js';
 import { asPrinted } from '../board/conventions/voltageLimits.js';
@@ -57,9 +57,17 @@ export function studyInstallationScenarios(installation: Installation, profile: 
   const hours = scenarioHours(scenarios, issues);
   const flat = flattenLoads(installation);
   const lookup = loadLookup(installation);
+  // The banks the file lists in service are as listed in every scenario: no scenario or group names them.
+  const inService = bankPartIndices(installation);
+  const bankParts = new Set(inService);
   /** The one load a name stands for, or null after an issue at `path`. */
   const oneLoad = (name: string, path: string, expected: string): number | null => {
     const found = lookup(name);
+    const bank = bankPartIssue(found, bankParts, name, path, 'scenario');
+    if (bank) {
+      issues.push(bank);
+      return null;
+    }
     if (found.length === 1) return found[0]!;
     if (found.length === 0) issues.push(inputIssue('unknown_load', path, expected, name));
     else issues.push(inputIssue('ambiguous_load', path, `the load with its board, one of ${found.map((l) => `"${flat.loads[l]!.name}"`).join(', ')} (several boards have a load "${name}")`, name));
@@ -75,15 +83,6 @@ export function studyInstallationScenarios(installation: Installation, profile: 
       // A group of that name wins, as in the interval data's columns.
       const loads = groups[name] ? (members.get(name) ?? []) : [oneLoad(name, `profile.scenarios[${k}].loads.${name}`, EXPECTED_LOAD)].filter((l): l is number => l !== null);
       return { loads, scale };
-    }),
-  );
-  // The banks the file lists in service are as listed in every scenario: no scenario scales them.
-  const inService = bankPartIndices(installation);
-  named.forEach((entries, k) =>
-    entries.forEach(({ loads }, e) => {
-      const part = loads.find((l) => inService.includes(l));
-      if (part !== undefined)
-        issues.push(inputIssue('scales_bank_in_service', `profile.scenarios[${k}].loads.${Object.keys(scenarios[k]!.loads)[e]}`, `loads and groups without "${flat.loads[part]!.name}": it is part of a capacitor bank the file lists in service (harmonics.banks), in service in every scenario as listed`, flat.loads[part]!.name));
     }),
   );
   if (issues.length) throw new InputError(issues, 'the scenarios are not valid');
