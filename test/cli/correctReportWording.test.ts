@@ -3,7 +3,9 @@
  * capacitance window, a comparison where nothing is added, a recommendation
  * that makes the balance worse, and a negative loss saving in the HTML report.
  */
-import { readFileSync } from 'node:fs';
+import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { buildBoardReport, compareCorrections, correctBoard, normaliseBoard, parseBoard, readBoardText, renderReportHtml, solveBoardModel } from '@trivar/core';
 import { ROOT, runTrivar } from './runTrivar.js';
@@ -16,18 +18,40 @@ const boardOf = (file: string) => {
 
 describe('correct report wording', () => {
   it('an empty capacitance window is said in words with both bounds, never as "a – b" with a > b', () => {
-    const r = runTrivar(['correct', 'examples/hillside-workshop.yaml', '--arrangement', 'delta-bank']);
+    // A print shop's finishing room (invented): line B's circuits leave it near unity, so the delta
+    // branches that line C needs would make line B lead at +10 %; no windows hold, alone or together.
+    const dir = mkdtempSync(join(tmpdir(), 'trivar-window-'));
+    const file = join(dir, 'finishing-room.yaml');
+    writeFileSync(
+      file,
+      [
+        'name: Print finishing room',
+        'supply: { system: three-phase-4wire, voltage: { lineToLine: 400 }, frequencyHz: 50, transformer: { kVA: 250, impedancePercent: 4, xOverR: 3 } }',
+        'feeder: { line: { r: 0.02, x: 0.01 }, neutral: { r: 0.03, x: 0.01 } }',
+        'loads:',
+        '  - { name: laminator, connection: C-N, kW: 4.63, pf: 0.704 }',
+        '  - { name: guillotine drive, connection: B-C, kW: 4.56, pf: 0.716 }',
+        '  - { name: drying tunnel fans, connection: A-N, kW: 7.38, pf: 0.77 }',
+        '  - { name: light table, connection: B-N, kW: 1.87, pf: 0.941 }',
+        '',
+      ].join('\n'),
+    );
+    const r = runTrivar(['correct', file, '--arrangement', 'delta-bank']);
     expect(r.stderr).toBe('');
-    const { board } = boardOf('examples/hillside-workshop.yaml');
-    const sel = correctBoard(board, { arrangement: 'delta-bank' }).selection!;
+    const board = normaliseBoard(parseBoard(readBoardText(readFileSync(file, 'utf8'))));
+    const report = correctBoard(board, { arrangement: 'delta-bank' });
+    expect(report.sizing.arrangement === 'delta-bank' && report.sizing.roundingWindows).toBeNull();
+    const sel = report.selection!;
+    expect(sel.windowsHeldTogether).toBe(false);
     const empty = sel.selections.filter((s) => s.maximumCapacitanceUF !== null && s.maximumCapacitanceUF < s.minimumCapacitanceUF);
-    expect(empty.map((s) => s.branch)).toEqual(['B-C']);
+    expect(empty.map((s) => s.branch)).toEqual(['B-C', 'C-A']);
     for (const m of r.stdout.matchAll(/(\d+\.\d) – (\d+\.\d)/g)) expect(Number(m[1]), m[0]).toBeLessThanOrEqual(Number(m[2]));
     const s = empty[0]!;
     expect(r.stdout).toMatch(/B-C\s+none \(see below\)/);
     expect(r.stdout.replace(/\s+/g, ' ')).toContain(
       `B-C: no capacitance satisfies both tolerance ends — meeting the target at −5 % needs at least ${s.minimumCapacitanceUF.toFixed(1)} µF nominal, keeping every line within its bounds at +10 % allows at most ${s.maximumCapacitanceUF!.toFixed(1)} µF`,
     );
+    expect(r.stdout).not.toMatch(/ranges that hold together/);
   });
 
   it('where nothing is added no cost figure is quoted for it', () => {
@@ -55,8 +79,8 @@ describe('correct report wording', () => {
     expect(c.why).not.toMatch(/compensator raises/);
     const text = runTrivar(['correct', 'examples/hillside-workshop.yaml']).stdout.replace(/\s+/g, ' ');
     expect(text).toContain(`Recommendation delta bank:`);
-    expect(text).toMatch(/; note: the recommended delta bank raises \|I2\|\/\|I1\| from 54\.5 % to 86\.2 %/);
-    expect(text).toContain('! the equipment makes the current unbalance worse: |I2|/|I1| rises from 54.5 % to 86.2 %');
+    expect(text).toContain(`; note: the recommended delta bank raises |I2|/|I1| from ${b.toFixed(1)} % to ${a.toFixed(1)} %`);
+    expect(text).toContain(`! the equipment makes the current unbalance worse: |I2|/|I1| rises from ${b.toFixed(1)} % to ${a.toFixed(1)} %`);
   });
 
   it('a board whose bank does not change the balance notably gets no such note', () => {

@@ -121,7 +121,15 @@ function branchTable(sel: BankSelection, label: PhaseLabeller): string {
       `${fixed(s.nominalV, 0)} / ${fixed(s.highestVoltageV, 0)} / ${fixed(s.requiredRatedV, 0)}`,
     ]),
   );
-  const notes = sel.selections.filter(emptyWindow).map((s) => emptyWindowNote(sel, s, label));
+  const tol = sel.capacitanceTolerance;
+  const notes = [
+    ...(sel.windowsHeldTogether
+      ? [
+          `µF needed: ranges that hold together — with every branch anywhere in its range, every line meets the target at −${tol.minusPercent} % and stays within its bounds at +${tol.plusPercent} % (first order, re-solved below); each branch's own range, taken alone, left no room`,
+        ]
+      : []),
+    ...sel.selections.filter(emptyWindow).map((s) => emptyWindowNote(sel, s, label)),
+  ];
   return notes.length ? `${table}\n${indentLines(notes)}` : table;
 }
 

@@ -30,11 +30,20 @@ import { regionWords } from '../board/conventions/regionWords.js';
 
 /** @param use `limitsOnly` for the light-load sizing, read only for its limits (see ResolvedBankOptions) */
 function sizeArrangement(board: Board, spec: CorrectionSpec & { arrangement: Arrangement }, use: { limitsOnly?: boolean; heldBranches?: readonly string[] } = {}): BankSizing | CompensatorSizing {
+  // A bank's rounding windows hold across the tolerance its units are chosen for (selectBankUnits).
+  const tolerance = spec.capacitanceTolerance ?? {};
+  const bankUse = {
+    ...(use.limitsOnly ? { limitsOnly: true } : {}),
+    capacitanceTolerance: {
+      minus: (tolerance.minusPercent ?? CORRECTION_DEFAULTS.capacitanceTolerance.minusPercent) / 100,
+      plus: (tolerance.plusPercent ?? CORRECTION_DEFAULTS.capacitanceTolerance.plusPercent) / 100,
+    },
+  };
   switch (spec.arrangement) {
     case 'star-bank':
-      return sizeStarBank(board, definedOnly({ target: spec.target, starPoint: spec.starPoint, share: spec.share }), use);
+      return sizeStarBank(board, definedOnly({ target: spec.target, starPoint: spec.starPoint, share: spec.share }), bankUse);
     case 'delta-bank':
-      return sizeDeltaBank(board, definedOnly({ target: spec.target, share: spec.share }), use);
+      return sizeDeltaBank(board, definedOnly({ target: spec.target, share: spec.share }), bankUse);
     case 'balancing-compensator':
       return sizeBalancingCompensator(
         board,

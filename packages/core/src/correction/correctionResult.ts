@@ -101,6 +101,19 @@ export interface BankSizing extends SizedEquipment {
    * to meet every line (null: no equal bank does before a line passes its bound), and the most it may have.
    */
   readonly equalShare: { readonly minKvar: number | null; readonly limitKvar: number } | null;
+  /**
+   * Per-line targets, where some branch's own window is empty (its limit, the least-kvar bank that puts
+   * every line at its bound, below its requirement across the capacitance tolerance: a delta branch
+   * serves two lines): per branch a window of design-state output at nominal voltage, kvar, such that
+   * any state with every branch inside its window meets every target at −tol and passes no bound at
+   * +tol (to first order about the sizing; see roundingWindows.ts), in sets of several widths. Units
+   * are rounded in these instead. Null where every branch's own window holds, or none was found.
+   */
+  readonly roundingWindows: {
+    /** Narrowest first (least kvar at the low ends); the unit choice tries each and keeps the best build. */
+    readonly sets: readonly { readonly lowKvar: readonly number[]; readonly highKvar: readonly number[] }[];
+    readonly tolerance: { readonly minus: number; readonly plus: number };
+  } | null;
   /** Board solves the sizing used. */
   readonly solves: number;
 }
@@ -329,6 +342,11 @@ export interface BankSelection {
   readonly catalogueTitle: string;
   readonly catalogueNote: string;
   readonly capacitanceTolerance: { readonly minusPercent: number; readonly plusPercent: number };
+  /**
+   * True when the capacitance windows (`selections`' minimum and maximum) are the sizing's rounding windows,
+   * which hold together (`BankSizing.roundingWindows`), not each branch's own.
+   */
+  readonly windowsHeldTogether: boolean;
   /** Rating rule: at least (1 + margin) × nominal voltage across the unit, and the highest solved voltage within 110 % of rating. */
   readonly voltageMarginPercent: number;
   readonly continuousLimitPercent: number;

@@ -26,11 +26,11 @@ import { CONTROLLER_OUTPUTS, PRACTICES, capacitorUnitSchema, type CapacitanceTol
 import { CORRECTION_DEFAULTS } from './correctionDefaults.js';
 import { TYPICAL_CATALOGUES, catalogueUnitOf, type CatalogueUnit } from './unitCatalogues.js';
 import type { EquipmentBranch, EquipmentGroup } from './equipment.js';
-import type { BankSelection, BankStep, BranchSelection, CorrectionWarning, SelectedUnit, SizedEquipment, UnbuildableBranches } from './correctionResult.js';
+import type { BankSelection, BankSizing, BankStep, BranchSelection, CorrectionWarning, SelectedUnit, SizedEquipment, UnbuildableBranches } from './correctionResult.js';
 import { selectionWording, warningText } from './correctionWording.js';
 import { parseOptions } from '../_internal/zodIssues.js';
 import { labellerOf, PHASE_NAMINGS, type PhaseNaming } from '../board/conventions/phaseNames.js';
-import { searchSet, shortOfTarget, type Need, type SetBuild, type UnitChoice } from './_internal/bankSearch.js';
+import { firstFit, searchSet, shortOfTarget, type Need, type SetBuild, type UnitChoice } from './_internal/bankSearch.js';
 import { controllerSettings, resolveCurrentTransformer, responseThresholdA } from './controllerSettings.js';
 
 export interface SelectBankUnitsOptions {
@@ -153,6 +153,19 @@ export function selectBankUnits(sized: SizedEquipment, options?: SelectBankUnits
   // Beside reactors kept at their continuous value a capacitor may not grow past its requirement (the
   // balance would tip and lines lead); beside reactors sized again, and elsewhere, a quarter more is allowed.
   const headroom = sized.branches.some((b) => b.element === 'reactor') && opts.besideReactors !== 'up' ? 1 : NO_LIMIT_HEADROOM;
+  // Windows that hold together, where the sizing found them for this tolerance (sizeBank.ts): every
+  // branch rounded inside its own keeps every line on target and within its bound.
+  const rounding = (sized as { roundingWindows?: BankSizing['roundingWindows'] }).roundingWindows ?? null;
+  const together = rounding && Math.abs(rounding.tolerance.minus - minus) < 1e-12 && Math.abs(rounding.tolerance.plus - plus) < 1e-12 ? rounding : null;
+  /** A branch's need inside one set of windows that hold together (kvar at nominal voltage to F). */
+  const heldTogether = (info: { need: Need; slot: { vNominal: number }; capacitor: boolean }, w: { lowKvar: readonly number[]; highKvar: readonly number[] }, i: number): Need => {
+    // A branch the sizing left empty is held empty in the windows (roundingWindows.ts): no unit may go there.
+    if (!info.capacitor) return info.need.maxF === null ? info.need : { nominalF: 0, minF: 0, maxF: 0, limitF: 0, fixedMaxF: 0 };
+    const toF = (kvar: number) => (kvar * 1000) / (omega * info.slot.vNominal ** 2);
+    const lowF = toF(w.lowKvar[i]!);
+    const highF = toF(w.highKvar[i]!);
+    return { nominalF: lowF * (1 - minus), minF: lowF, maxF: highF, limitF: highF * (1 + plus), fixedMaxF: Math.min(info.need.fixedMaxF, lowF) };
+  };
   const branchInfo = sized.branches.map((b, i) => {
     const slot = slots[i]!;
     const light = opts.lightLoad?.branches[i];
@@ -242,13 +255,17 @@ export function selectBankUnits(sized: SizedEquipment, options?: SelectBankUnits
     // enough there does not on it) is unbuildable, not "short of the target": the others are still built.
     const uncovered = balancedChoices.length ? [] : set.indices.filter((i, k) => branchInfo[i]!.capacitor && !trimChoices[k]!.length);
     unbuildable.push(...uncovered);
-    const build = searchSet(
-      infos.map((x) => x.need),
-      balancedChoices,
-      trimChoices,
-      { unitCostKvar, minSwitchedSteps: CORRECTION_DEFAULTS.minSwitchedSteps, minStepKvar, outputs: outputsPerSet, maxUnitsPerBranch: maxUnits },
-      three && !withReactor ? equalNeedsOf(set.indices) : undefined,
-    );
+    const search = (needs: readonly Need[]) =>
+      searchSet(
+        needs,
+        balancedChoices,
+        trimChoices,
+        { unitCostKvar, minSwitchedSteps: CORRECTION_DEFAULTS.minSwitchedSteps, minStepKvar, outputs: outputsPerSet, maxUnitsPerBranch: maxUnits },
+        three && !withReactor ? equalNeedsOf(set.indices) : undefined,
+      );
+    // Windows that hold together, where the sizing found them (each branch's own are then empty): the
+    // narrowest set (least kvar) that a build fits whole, else the best build over every set.
+    const build = together && three ? firstFit(together.sets.map((w) => () => search(set.indices.map((i) => heldTogether(branchInfo[i]!, w, i))))) : search(infos.map((x) => x.need));
     set.indices.forEach((i, k) => {
       designF[i] = build.designF[k]!;
       fixedF[i] = build.fixedF[k]!;
@@ -399,6 +416,7 @@ export function selectBankUnits(sized: SizedEquipment, options?: SelectBankUnits
     catalogueTitle,
     catalogueNote: typical ? selectionWording.typicalNote : selectionWording.userNote,
     capacitanceTolerance: { minusPercent: minus * 100, plusPercent: plus * 100 },
+    windowsHeldTogether: together !== null,
     voltageMarginPercent: margin * 100,
     continuousLimitPercent: limitV * 100,
     deliveryFloorPercent: floor * 100,

@@ -67,7 +67,7 @@ function resolveDeltaBankOptions(board: Board, input: DeltaBankOptions | undefin
  * sizeDeltaBank(board, { target: { pf: 0.95 } }).branches.map((b) => b.kvarAtNominalV)
  * //=> [12.64…, 12.64…, 12.64…]
  */
-export function sizeDeltaBank(board: Board, options?: DeltaBankOptions, use: { limitsOnly?: boolean } = {}): BankSizing {
+export function sizeDeltaBank(board: Board, options?: DeltaBankOptions, use: Pick<ResolvedBankOptions, 'limitsOnly' | 'capacitanceTolerance'> = {}): BankSizing {
   const resolved = resolveDeltaBankOptions(board, options);
   return sizeBank(board, 'delta-bank', deltaSlots(board), { ...resolved, ...use });
 }

@@ -75,7 +75,7 @@ function resolveStarBankOptions(board: Board, input: StarBankOptions | undefined
  * sizeStarBank(board, { target: { pf: 0.95 } }).branches[0].kvarAtNominalV
  * //=> 12.64… (= 30 × (tan acos 0.8 − tan acos 0.95))
  */
-export function sizeStarBank(board: Board, options?: StarBankOptions, use: { limitsOnly?: boolean } = {}): BankSizing {
+export function sizeStarBank(board: Board, options?: StarBankOptions, use: Pick<ResolvedBankOptions, 'limitsOnly' | 'capacitanceTolerance'> = {}): BankSizing {
   const resolved = resolveStarBankOptions(board, options);
   return sizeBank(board, 'star-bank', starSlots(board, resolved.starPoint), { ...resolved, ...use });
 }

@@ -202,6 +202,23 @@ function rankKey(build: SetBuild, needs: readonly Need[]): number[] {
   return [Number(v.unitCap), Number(v.outputs), Number(past), Number(v.minStep), worst, Math.round(missSum * 20), build.stepsShort, build.cost, -steps];
 }
 
+/** True when a build fits every branch's window and breaks no hardware rule. */
+const fitsWhole = (build: SetBuild) => Math.max(...build.tiers) === 0 && !Object.values(build.violations).some(Boolean);
+
+/**
+ * Searches against one set of windows after another and returns the first build that fits whole,
+ * else the best of them all by the search's ranking (each judged against its own windows; the first of equals).
+ */
+export function firstFit(searches: readonly (() => SetBuild)[]): SetBuild {
+  let best: SetBuild | null = null;
+  for (const search of searches) {
+    const build = search();
+    if (fitsWhole(build)) return build;
+    if (best === null || better(rankKey(build, build.needs), rankKey(best, best.needs))) best = build;
+  }
+  return best!;
+}
+
 const better = (a: readonly number[], b: readonly number[]) => {
   for (let k = 0; k < a.length; k++) if (Math.abs(a[k]! - b[k]!) > 1e-9 * Math.max(1, Math.abs(b[k]!))) return a[k]! < b[k]!;
   return false;
@@ -446,7 +463,7 @@ export function searchSet(
     for (const count of balancedCounts(choice))
       if (!pruning || mayWin(equalKeyBound(equalNeeds, rules, choice, count))) consider(evaluate(equalNeeds, rules, { choice, count }, []));
   }
-  const equalFits = best !== null && Math.max(...(best as SetBuild).tiers) === 0 && !Object.values((best as SetBuild).violations).some(Boolean);
+  const equalFits = best !== null && fitsWhole(best);
   if (!equalFits && trimChoices.some((c) => c.length)) {
     withTrims(null);
     const leastAnyTrimKvar = Math.min(...leastTrimKvar);

@@ -16,6 +16,7 @@ import { sizeForLineTargets, type LoopSettings } from './sizeForLineTargets.js';
 import { sizeAlongDirection } from './sizeAlongDirection.js';
 import { equalShareWindow, type EqualShareWindow } from './equalShareWindow.js';
 import { branchSizings, lineComparisons } from './branchReadings.js';
+import { roundingWindows, type RoundingWindows } from './roundingWindows.js';
 import { meteringPlace } from '../meteringPoint.js';
 
 export interface ResolvedBankOptions {
@@ -28,6 +29,8 @@ export interface ResolvedBankOptions {
    * an equal bank's window is then found up to its limit only (`equalShare.minKvar` null).
    */
   readonly limitsOnly?: boolean;
+  /** The capacitance tolerance units will be chosen across, fractions (`roundingWindows`). @defaultValue none: no rounding windows */
+  readonly capacitanceTolerance?: { readonly minus: number; readonly plus: number };
 }
 
 export function sizeBank(board: Board, arrangement: BankSizing['arrangement'], slots: readonly BranchSlot[], options: ResolvedBankOptions): BankSizing {
@@ -54,7 +57,13 @@ export function sizeBank(board: Board, arrangement: BankSizing['arrangement'], s
     if (perLineTarget && slots.length === 3 && start.result.totals.kW > 0) equalShare = equalShareWindow(probe, start, lineBands(target, start, 'target'), limitBands, options.limitsOnly);
   };
 
-  const finish = (sized: ProbeState, sizedLimit: readonly number[] | null, method: string, forced?: { status: BankSizing['status']; reasons: string[] }): BankSizing => {
+  const finish = (
+    sized: ProbeState,
+    sizedLimit: readonly number[] | null,
+    method: string,
+    forced?: { status: BankSizing['status']; reasons: string[] },
+    windows: RoundingWindows | null = null,
+  ): BankSizing => {
     const state = floating ? built.at(toBuilt(sized.kvar)) : sized;
     const limitKvar = sizedLimit && toBuilt(sizedLimit);
     const equipment = built.groups(state.kvar);
@@ -84,6 +93,7 @@ export function sizeBank(board: Board, arrangement: BankSizing['arrangement'], s
       lines: lineComparisons(start.result, state.result),
       starPointShift: slots.some((s) => s.to === 'star') ? star : null,
       equalShare,
+      roundingWindows: windows,
       solves: probe.solves() + (floating ? built.solves() : 0),
     };
   };
@@ -99,8 +109,15 @@ export function sizeBank(board: Board, arrangement: BankSizing['arrangement'], s
     equalWindow();
     const limit = sizeForLineTargets(probe, limitBands, loop);
     if (checkBefore.met) return finish(start, limit.kvar, method, { status: 'already-meets-target', reasons: [] });
-    const outcome = sizeForLineTargets(probe, lineBands(target, start, 'target'), loop);
-    const sized = finish(outcome.state, limit.kvar, method);
+    const targetBands = lineBands(target, start, 'target');
+    const outcome = sizeForLineTargets(probe, targetBands, loop);
+    // Each branch's window ([requirement, limit] across the tolerance) is what units are rounded in; where
+    // one is empty, windows that hold together are found instead (not on a floating star: its elements
+    // are not proportional to the equivalent delta's the loops size).
+    const tol = options.capacitanceTolerance;
+    const crossed = tol && outcome.kvar.some((q, i) => q > 0 && limit.kvar[i]! / (1 + tol.plus) < q / (1 - tol.minus));
+    const windows = crossed && !floating && !options.limitsOnly ? roundingWindows(probe, outcome.state, targetBands, limitBands, tol) : null;
+    const sized = finish(outcome.state, limit.kvar, method, undefined, windows);
     if (!outcome.converged && sized.status === 'infeasible')
       return { ...sized, reasons: [...sized.reasons, infeasibleReason.notConverged(outcome.iterations, outcome.lastChange)] };
     return sized;
