@@ -1,18 +1,19 @@
 /**
- * Solves at a harmonic order through one LinearNetworkCache give, to the bit, what a fresh compile
- * of each gives. An invented installation on a three-wire supply (so each step of its star bank
+ * Solves through one CompiledNetworkCache — the load flow at the fundamental and the linear solve at
+ * every harmonic order — give, to the bit, what a fresh compile of each gives. An invented installation on a three-wire supply (so each step of its star bank
  * has a floating star point) is switched as the capacitor duty switches it — every load off, the
  * other bank's parts off, a step off, capacitance at a tolerance end, and all of that at once — and
- * solved at every order in turn through the one cache, each against the same solve compiled alone.
+ * solved at the fundamental and every order in turn through the one cache, each against the same
+ * solve compiled alone.
  * Switching a step off kills its star point, so those states need networks of their own: the
  * cache compiles one per order and set of live nodes, and a dead star reads as dead.
- * The same on a single board (`solveAtOrder`) through its bank's step states.
+ * The same on a single board (`solveHarmonicOrders`) through its bank's step states.
  */
 import { describe, expect, it } from 'vitest';
 import {
   boardOfInstallation,
   installationOf,
-  LinearNetworkCache,
+  CompiledNetworkCache,
   parseBoard,
   parseInstallation,
   readBoardText,
@@ -22,6 +23,8 @@ import {
   normaliseBoard,
   solveAtOrder,
   solveInstallationAtOrder,
+  solveCompiledInstallation,
+  solveHarmonicOrders,
   solveInstallationNetwork,
   solveNetwork,
   withCapacitanceFactor,
@@ -69,7 +72,7 @@ const ordersOf = (models: readonly HarmonicModel[]) =>
 /** The bank parts (load numbers) of each board. */
 const partsOf = (models: readonly HarmonicModel[]) => models.map((m) => (m.bank ? [...(m.bank.fixedLoad === null ? [] : [m.bank.fixedLoad]), ...m.bank.stepLoads] : []));
 
-describe('harmonic solves through a LinearNetworkCache equal fresh compiles', () => {
+describe('harmonic solves through a CompiledNetworkCache equal fresh compiles', () => {
   it('an installation in the duty check’s states, at every order', () => {
     const { installation, models, bankBoards } = resolveInstallationHarmonics(parseInstallation(readBoardText(INSTALLATION)) as never);
     const [hall, cold] = bankBoards as [number, number];
@@ -91,12 +94,13 @@ describe('harmonic solves through a LinearNetworkCache equal fresh compiles', ()
     ];
     const orders = ordersOf(models);
     expect(orders.length).toBeGreaterThanOrEqual(4);
-    const networks = new LinearNetworkCache();
+    const networks = new CompiledNetworkCache();
     const hallVoltages: number[] = [];
     let deadStars = 0;
     const livePatterns = new Set<string>();
     for (const [, inst, stateModels] of states) {
       const fundamental = solveInstallationNetwork(inst);
+      expect(solveCompiledInstallation(networks.compileForLoadFlow(inst))).toEqual(fundamental);
       for (const h of orders) {
         const fresh = solveInstallationAtOrder(fundamental, stateModels, h);
         const reused = solveInstallationAtOrder(fundamental, stateModels, h, { networks });
@@ -111,12 +115,12 @@ describe('harmonic solves through a LinearNetworkCache equal fresh compiles', ()
     // Real states: the hall's busbar voltage at each order differs from state to state.
     expect(new Set(hallVoltages.map((v) => v.toPrecision(6))).size).toBeGreaterThan(orders.length * 4);
     // Some states kill floating stars, so they cannot share the others' networks; every other
-    // solve found its network again: one compile per order and set of live nodes.
+    // solve found its network again: one compile per order (the fundamental too) and set of live nodes.
     expect(deadStars).toBeGreaterThan(0);
     // Every node live; step 3's star dead; steps 1 and 2's; all three.
     expect(livePatterns.size).toBe(4);
-    expect(networks.compiled).toBe(orders.length * livePatterns.size);
-    expect(networks.compiled + networks.reused).toBe(states.length * orders.length);
+    expect(networks.compiled).toBe((orders.length + 1) * livePatterns.size);
+    expect(networks.compiled + networks.reused).toBe(states.length * (orders.length + 1));
   });
 
   it('a board through its bank’s step states, at every order', () => {
@@ -137,14 +141,16 @@ harmonics:
     const model = resolveHarmonicModel(spec, added.board, added.model);
     const bank = model.bank!;
     const orders = ordersOf([model]);
-    const networks = new LinearNetworkCache();
+    const networks = new CompiledNetworkCache();
     const states = [[true, true], [true, false], [false, true], [false, false]];
     for (const steps of states) {
-      const fundamental = solveNetwork(withSteps(added.board, bank, steps));
-      for (const h of orders) expect(solveAtOrder(fundamental, model, h, { networks })).toEqual(solveAtOrder(fundamental, model, h));
+      const board = withSteps(added.board, bank, steps);
+      const fundamental = solveNetwork(board);
+      const fresh = [{ order: 1, solution: fundamental }, ...orders.map((h) => ({ order: h, solution: solveAtOrder(fundamental, model, h) }))];
+      expect(solveHarmonicOrders(board, model, undefined, networks)).toEqual(fresh);
     }
     // Delta parts switched off leave every node live: one network per order serves every state.
-    expect(networks.compiled).toBe(orders.length);
-    expect(networks.reused).toBe(orders.length * (states.length - 1));
+    expect(networks.compiled).toBe(orders.length + 1);
+    expect(networks.reused).toBe((orders.length + 1) * (states.length - 1));
   });
 });

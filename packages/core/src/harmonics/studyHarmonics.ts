@@ -9,9 +9,8 @@ import { normaliseBoard } from '../board/normaliseBoard.js';
 import type { Board, BoardLoad } from '../board/boardModel.js';
 import { abs, add } from '../complex.js';
 import { InputError, inputIssue } from '../errors.js';
-import { solveNetwork, type NetworkSolution, type SolveOptions } from '../network/solveNetwork.js';
-import { LinearNetworkCache } from '../network/linearNetworkCache.js';
-import type { FixedSolveOptions } from '../network/solveFixedNetwork.js';
+import { compileBoard, solveCompiledBoard, solveNetwork, type NetworkSolution, type SolveOptions } from '../network/solveNetwork.js';
+import { CompiledNetworkCache } from '../network/compiledNetworkCache.js';
 import { addInstalledBank, ordersPresent, resolveHarmonicModel, stateKey, type BankModel, type HarmonicModel } from './harmonicModel.js';
 import { solveAtOrder } from './networkAtOrder.js';
 import { readLines, readLineToLine, readNeutral, type OrderSolution } from './readHarmonics.js';
@@ -40,10 +39,11 @@ export interface HarmonicsOptions {
 
 /**
  * Solves the fundamental and every order present.
- * @param orders passed to the solve at each order (`networks`: compiled networks to reuse)
+ * @param networks compiled networks to reuse, where the same board is solved in many states
  */
-export function solveHarmonicOrders(board: Board, model: HarmonicModel, solve?: SolveOptions, orders: FixedSolveOptions = {}): OrderSolution[] {
-  const fundamental = solveNetwork(board, solve);
+export function solveHarmonicOrders(board: Board, model: HarmonicModel, solve?: SolveOptions, networks?: CompiledNetworkCache): OrderSolution[] {
+  const fundamental = networks ? solveCompiledBoard(compileBoard(board, (i) => networks.compileForLoadFlow(i)), solve) : solveNetwork(board, solve);
+  const orders = networks ? { networks } : {};
   return [{ order: 1, solution: fundamental }, ...ordersPresent(model).map((h) => ({ order: h, solution: solveAtOrder(fundamental, model, h, orders) }))];
 }
 
@@ -119,11 +119,11 @@ export type SwitchedOtherBanks = (steps: readonly boolean[]) => readonly { reado
  */
 export type DutySolver = (board: Board, model: HarmonicModel, loadsOff: boolean, others: OtherBanksSetting) => OrderSolution[];
 
-/** The duty solver of a single board; every state's orders through `networks`, the board's topology being the same in each. */
+/** The duty solver of a single board: every state through `networks`, its states changing load powers only. */
 const boardDutySolver =
-  (networks: LinearNetworkCache, solve?: SolveOptions): DutySolver =>
+  (networks: CompiledNetworkCache, solve?: SolveOptions): DutySolver =>
   (board, model, loadsOff) =>
-    solveHarmonicOrders(loadsOff ? withLoadsOff(board) : board, model, solve, { networks });
+    solveHarmonicOrders(loadsOff ? withLoadsOff(board) : board, model, solve, networks);
 
 /**
  * Every state of the board's bank, each at the capacitance tolerance ends and with the loads off —
@@ -269,9 +269,9 @@ export function harmonicsWarnings({ scan, neutral, voltageDistortion, duty, tdd,
  * @throws {NumericalError} when a solve fails
  */
 export function analyseHarmonics(board: Board, model: HarmonicModel, options: HarmonicsOptions = {}): HarmonicsReport {
-  // One set of compiled networks for every solve at a harmonic order: the study's and each duty state's.
-  const networks = new LinearNetworkCache();
-  const orders = solveHarmonicOrders(board, model, options.solve, { networks });
+  // One set of compiled networks for every solve: the study's and each duty state's, at every order.
+  const networks = new CompiledNetworkCache();
+  const orders = solveHarmonicOrders(board, model, options.solve, networks);
   const fundamental: NetworkSolution = orders[0]!.solution;
   const lines = readLines(orders);
   const lineToLine = readLineToLine(orders);

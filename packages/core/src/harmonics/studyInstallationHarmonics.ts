@@ -16,8 +16,8 @@ import { labelIn } from '../board/conventions/phaseNames.js';
 import { regionWords } from '../board/conventions/regionWords.js';
 import { boardOfInstallation, installationOf, withBoardLoads } from '../network/installationModel.js';
 import { bankBoardsOf } from './banksInService.js';
-import { solveInstallationNetwork, type InstallationSolution, type SolveOptions } from '../network/solveNetwork.js';
-import { LinearNetworkCache } from '../network/linearNetworkCache.js';
+import { solveCompiledInstallation, type InstallationSolution, type SolveOptions } from '../network/solveNetwork.js';
+import { CompiledNetworkCache } from '../network/compiledNetworkCache.js';
 import { assertViableSolutions } from '../analysis/viableOperatingPoint.js';
 import { addInstalledBank, ordersPresent, resolveHarmonicModel, type BankModel, type HarmonicModel } from './harmonicModel.js';
 import type { HarmonicLoadSpec, InstallationHarmonicsSectionSpec } from './harmonicsSpec.js';
@@ -62,9 +62,9 @@ function boardOrders(b: number, fundamental: InstallationSolution, solved: reado
   return [{ order: 1, solution: fundamental.boards[b]! }, ...solved.map((o) => ({ order: o.order, solution: o.solution.boards[b]! }))];
 }
 
-/** Solves the installation at the fundamental and every order, each order through `networks`. */
-function solveOrders(installation: Installation, models: readonly HarmonicModel[], networks: LinearNetworkCache, solve?: SolveOptions) {
-  const fundamental = solveInstallationNetwork(installation, solve);
+/** Solves the installation at the fundamental and every order, each through `networks`. */
+function solveOrders(installation: Installation, models: readonly HarmonicModel[], networks: CompiledNetworkCache, solve?: SolveOptions) {
+  const fundamental = solveCompiledInstallation(networks.compileForLoadFlow(installation), solve);
   return { fundamental, solved: ordersOf(models).map((order) => ({ order, solution: solveInstallationAtOrder(fundamental, models, order, { networks }) })) };
 }
 
@@ -76,7 +76,7 @@ const bankPartsOf = (models: readonly HarmonicModel[]) => models.map((m) => (m.b
  * Every state, condition and other banks' setting changes load powers only (parts switched off draw
  * nothing, they are not removed), so at each order the circuits repeat and `networks` compiles each once.
  */
-function installationDutySolver(models: readonly HarmonicModel[], b: number, networks: LinearNetworkCache, solve?: SolveOptions): DutySolver {
+function installationDutySolver(models: readonly HarmonicModel[], b: number, networks: CompiledNetworkCache, solve?: SolveOptions): DutySolver {
   return (board, model, loadsOff, others) => {
     const { installation } = installationOf(board);
     const at = models.map((m, i) => (i === b ? model : m));
@@ -229,8 +229,8 @@ export interface InstallationHarmonicsOptions extends HarmonicsOptions {
  * @throws {NumericalError} when a solve fails, or reason `collapsed` when a board's supply has collapsed
  */
 export function analyseInstallationHarmonics({ installation, models, bankBoards }: InstallationHarmonicModel, options: InstallationHarmonicsOptions = {}): InstallationHarmonicsReport {
-  // One set of compiled networks for every solve at a harmonic order: the study's and each bank's duty states'.
-  const networks = new LinearNetworkCache();
+  // One set of compiled networks for every solve: the study's and each bank's duty states', at every order.
+  const networks = new CompiledNetworkCache();
   const { fundamental, solved } = solveOrders(installation, models, networks, options.solve);
   // Harmonics of a collapsed state describe nothing that can exist (as the correction study refuses it).
   assertViableSolutions(fundamental.boards);

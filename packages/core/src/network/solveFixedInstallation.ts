@@ -29,7 +29,7 @@ export interface FixedInstallationInput {
  * @throws {NumericalError} when the network is singular or a voltage is not finite.
  */
 export function solveFixedInstallation(installation: Installation, input: FixedInstallationInput, options: FixedSolveOptions = {}): InstallationSolution {
-  const compiled = options.networks ? options.networks.compileInstallation(installation) : compileInstallation(installation);
+  const compiled = options.networks ? options.networks.compileForLinearSolve(installation) : compileInstallation(installation);
   const { layout, network: net } = compiled;
   const sources: (ComplexValue | null)[] = new Array(net.branchCount).fill(null);
   const count = installation.subBoards.length + 1;

@@ -10,10 +10,9 @@ import { add, mul, sub, ZERO, isFiniteComplex, type ComplexValue } from '../comp
 import { NumericalError } from '../errors.js';
 import type { Board } from '../board/boardModel.js';
 import { REFERENCE } from './networkTopology.js';
-import { compileBoard, type BranchState, type CompiledBoard, type NetworkSolution } from './solveNetwork.js';
+import { compileBoard, type BranchState, type NetworkSolution } from './solveNetwork.js';
 import type { CompiledNetwork } from './compiledNetwork.js';
-import { installationOf } from './installationModel.js';
-import type { LinearNetworkCache } from './linearNetworkCache.js';
+import type { CompiledNetworkCache } from './compiledNetworkCache.js';
 
 export interface FixedNetworkInput {
   /** Per load, per branch: the admittance to use, S. */
@@ -41,18 +40,11 @@ export function injectBranchSource(net: CompiledNetwork, from: number, to: numbe
 
 export interface FixedSolveOptions {
   /**
-   * Compiled networks to reuse for a circuit met before (linearNetworkCache.ts): a study
+   * Compiled networks to reuse for a circuit met before (compiledNetworkCache.ts): a study
    * solving one installation in many states passes one cache to all its solves.
    * @defaultValue none: the installation is compiled for this solve
    */
-  readonly networks?: LinearNetworkCache;
-}
-
-/** `compileBoard` through a cache of networks for linear solves. */
-function compileBoardReusing(board: Board, networks: LinearNetworkCache): CompiledBoard {
-  const { installation, boardIndex } = installationOf(board);
-  const compiled = networks.compileInstallation(installation);
-  return { board, boardIndex, topology: compiled.layout.topologies[boardIndex]!, installation: compiled, network: compiled.network };
+  readonly networks?: CompiledNetworkCache;
 }
 
 /**
@@ -64,7 +56,8 @@ function compileBoardReusing(board: Board, networks: LinearNetworkCache): Compil
  * @throws {NumericalError} when the network is singular.
  */
 export function solveFixedNetwork(board: Board, input: FixedNetworkInput, options: FixedSolveOptions = {}): NetworkSolution {
-  const { topology: topo, network: net, installation, boardIndex } = options.networks ? compileBoardReusing(board, options.networks) : compileBoard(board);
+  const { networks } = options;
+  const { topology: topo, network: net, installation, boardIndex } = compileBoard(board, networks ? (i) => networks.compileForLinearSolve(i) : undefined);
   const sourceOf = (l: number, k: number) => input.branchSources?.[l]?.[k] ?? null;
   let index = 0;
   board.loads.forEach((load, l) =>
