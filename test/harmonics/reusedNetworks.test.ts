@@ -74,7 +74,7 @@ const partsOf = (models: readonly HarmonicModel[]) => models.map((m) => (m.bank 
 
 describe('harmonic solves through a CompiledNetworkCache equal fresh compiles', () => {
   it('an installation in the duty check’s states, at every order', () => {
-    const { installation, models, bankBoards } = resolveInstallationHarmonics(parseInstallation(readBoardText(INSTALLATION)) as never);
+    const { installation, models, bankBoards } = resolveInstallationHarmonics(parseInstallation(readBoardText(INSTALLATION)));
     const [hall, cold] = bankBoards as [number, number];
     const bank = models[hall]!.bank!;
     // The hall's bank in a state and at a capacitance factor, as capacitorDuty sets it; its model with it.
@@ -98,14 +98,14 @@ describe('harmonic solves through a CompiledNetworkCache equal fresh compiles', 
     const hallVoltages: number[] = [];
     let deadStars = 0;
     const livePatterns = new Set<string>();
-    for (const [, inst, stateModels] of states) {
+    for (const [label, inst, stateModels] of states) {
       const fundamental = solveInstallationNetwork(inst);
-      expect(solveCompiledInstallation(networks.compileForLoadFlow(inst))).toEqual(fundamental);
+      expect(solveCompiledInstallation(networks.compileForLoadFlow(inst)), `${label}, fundamental`).toEqual(fundamental);
       for (const h of orders) {
         const fresh = solveInstallationAtOrder(fundamental, stateModels, h);
         const reused = solveInstallationAtOrder(fundamental, stateModels, h, { networks });
         // Every voltage, line, neutral and branch current, every board: the same numbers, not close ones.
-        expect(reused).toEqual(fresh);
+        expect(reused, `${label}, order ${h}`).toEqual(fresh);
         const hallBus = fresh.boards[hall]!;
         hallVoltages.push(cAbs(hallBus.nodeVoltages[hallBus.topology.busNode[0]!]!));
         livePatterns.add(fresh.boards[0]!.nodeVoltages.map((v) => (v === null ? '0' : '1')).join(''));
@@ -147,7 +147,7 @@ harmonics:
       const board = withSteps(added.board, bank, steps);
       const fundamental = solveNetwork(board);
       const fresh = [{ order: 1, solution: fundamental }, ...orders.map((h) => ({ order: h, solution: solveAtOrder(fundamental, model, h) }))];
-      expect(solveHarmonicOrders(board, model, undefined, networks)).toEqual(fresh);
+      expect(solveHarmonicOrders(board, model, undefined, networks), `steps ${steps.join(', ')}`).toEqual(fresh);
     }
     // Delta parts switched off leave every node live: one network per order serves every state.
     expect(networks.compiled).toBe(orders.length + 1);
