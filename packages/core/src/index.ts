@@ -205,7 +205,8 @@ export { tuningOrder, capacitorVoltage, detunedOutputKvar, detunedSusceptance, D
 export { ieee519OrderLimit, ieee519Row } from './harmonics/ieee519.js';
 export { HARMONICS_DEFAULTS } from './harmonics/harmonicsDefaults.js';
 export { HARMONICS_CAUTIONS, jointCoverageWords, nearestWords } from './harmonics/harmonicsWording.js';
-export type { FixedNetworkInput } from './network/solveFixedNetwork.js';
+export type { FixedNetworkInput, FixedSolveOptions } from './network/solveFixedNetwork.js';
+export { CompiledNetworkCache } from './network/compiledNetworkCache.js';
 export { solveFixedNetwork } from './network/solveFixedNetwork.js';
 export type { NodalMatrix } from './network/terminalImpedance.js';
 export type { CorrectionVariant, CorrectionHarmonics, HarmonicCorrectionReport, ArrangementHarmonics, HarmonicComparison } from './harmonics/correctWithHarmonics.js';

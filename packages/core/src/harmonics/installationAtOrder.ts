@@ -9,6 +9,7 @@
 import type { Installation } from '../board/boardModel.js';
 import type { InstallationSolution } from '../network/solveNetwork.js';
 import { solveFixedInstallation } from '../network/solveFixedInstallation.js';
+import type { FixedSolveOptions } from '../network/solveFixedNetwork.js';
 import type { HarmonicModel } from './harmonicModel.js';
 import { admittancesAtOrder, boardAtOrder, impedanceAtOrder, injectionsAtOrder } from './networkAtOrder.js';
 
@@ -28,11 +29,12 @@ export function installationAtOrder(installation: Installation, models: readonly
 
 /**
  * Solves the installation at integer order h ≥ 2 given its fundamental solution.
+ * @param options `networks`: compiled networks to reuse, where the same installation is solved in many states
  * @throws {NumericalError} when the network is singular at that order.
  */
-export function solveInstallationAtOrder(fundamental: InstallationSolution, models: readonly HarmonicModel[], h: number): InstallationSolution {
+export function solveInstallationAtOrder(fundamental: InstallationSolution, models: readonly HarmonicModel[], h: number, options: FixedSolveOptions = {}): InstallationSolution {
   return solveFixedInstallation(installationAtOrder(fundamental.installation, models, h), {
     admittances: fundamental.boards.map((board, b) => admittancesAtOrder(board, models[b]!, h)),
     branchSources: fundamental.boards.map((board, b) => injectionsAtOrder(board, models[b]!, h)),
-  });
+  }, options);
 }

@@ -11,7 +11,7 @@
 import { abs, complex, inverse, polar, arg, ZERO, type ComplexValue } from '../complex.js';
 import type { Board } from '../board/boardModel.js';
 import type { NetworkSolution } from '../network/solveNetwork.js';
-import { solveFixedNetwork } from '../network/solveFixedNetwork.js';
+import { solveFixedNetwork, type FixedSolveOptions } from '../network/solveFixedNetwork.js';
 import type { HarmonicModel, LoadBehaviour } from './harmonicModel.js';
 import { detunedSusceptance } from './detuning.js';
 
@@ -80,12 +80,13 @@ export function admittancesAtOrder(fundamental: NetworkSolution, model: Harmonic
 
 /**
  * Solves the board at integer order h ≥ 2 given its fundamental solution.
+ * @param options `networks`: compiled networks to reuse, where the same board is solved in many states
  * @throws {NumericalError} when the network is singular at that order.
  */
-export function solveAtOrder(fundamental: NetworkSolution, model: HarmonicModel, h: number): NetworkSolution {
+export function solveAtOrder(fundamental: NetworkSolution, model: HarmonicModel, h: number, options: FixedSolveOptions = {}): NetworkSolution {
   return solveFixedNetwork(boardAtOrder(fundamental.board, model, h), {
     admittances: admittancesAtOrder(fundamental, model, h),
     branchSources: injectionsAtOrder(fundamental, model, h),
-  });
+  }, options);
 }
 

@@ -9,7 +9,8 @@ import { normaliseBoard } from '../board/normaliseBoard.js';
 import type { Board, BoardLoad } from '../board/boardModel.js';
 import { abs, add } from '../complex.js';
 import { InputError, inputIssue } from '../errors.js';
-import { solveNetwork, type NetworkSolution, type SolveOptions } from '../network/solveNetwork.js';
+import { compileBoard, solveCompiledBoard, solveNetwork, type NetworkSolution, type SolveOptions } from '../network/solveNetwork.js';
+import { CompiledNetworkCache } from '../network/compiledNetworkCache.js';
 import { addInstalledBank, ordersPresent, resolveHarmonicModel, stateKey, type BankModel, type HarmonicModel } from './harmonicModel.js';
 import { solveAtOrder } from './networkAtOrder.js';
 import { readLines, readLineToLine, readNeutral, type OrderSolution } from './readHarmonics.js';
@@ -36,10 +37,14 @@ export interface HarmonicsOptions {
   readonly jointStateLimit?: number;
 }
 
-/** Solves the fundamental and every order present. */
-export function solveHarmonicOrders(board: Board, model: HarmonicModel, solve?: SolveOptions): OrderSolution[] {
-  const fundamental = solveNetwork(board, solve);
-  return [{ order: 1, solution: fundamental }, ...ordersPresent(model).map((h) => ({ order: h, solution: solveAtOrder(fundamental, model, h) }))];
+/**
+ * Solves the fundamental and every order present.
+ * @param networks compiled networks to reuse, where the same board is solved in many states
+ */
+export function solveHarmonicOrders(board: Board, model: HarmonicModel, solve?: SolveOptions, networks?: CompiledNetworkCache): OrderSolution[] {
+  const fundamental = networks ? solveCompiledBoard(compileBoard(board, (i) => networks.compileForLoadFlow(i)), solve) : solveNetwork(board, solve);
+  const orders = networks ? { networks } : {};
+  return [{ order: 1, solution: fundamental }, ...ordersPresent(model).map((h) => ({ order: h, solution: solveAtOrder(fundamental, model, h, orders) }))];
 }
 
 /** The board with the bank's steps switched as given (an off step draws nothing). */
@@ -114,11 +119,11 @@ export type SwitchedOtherBanks = (steps: readonly boolean[]) => readonly { reado
  */
 export type DutySolver = (board: Board, model: HarmonicModel, loadsOff: boolean, others: OtherBanksSetting) => OrderSolution[];
 
-/** The duty solver of a single board. */
+/** The duty solver of a single board: every state through `networks`, its states changing load powers only. */
 const boardDutySolver =
-  (solve?: SolveOptions): DutySolver =>
+  (networks: CompiledNetworkCache, solve?: SolveOptions): DutySolver =>
   (board, model, loadsOff) =>
-    solveHarmonicOrders(loadsOff ? withLoadsOff(board) : board, model, solve);
+    solveHarmonicOrders(loadsOff ? withLoadsOff(board) : board, model, solve, networks);
 
 /**
  * Every state of the board's bank, each at the capacitance tolerance ends and with the loads off —
@@ -264,14 +269,16 @@ export function harmonicsWarnings({ scan, neutral, voltageDistortion, duty, tdd,
  * @throws {NumericalError} when a solve fails
  */
 export function analyseHarmonics(board: Board, model: HarmonicModel, options: HarmonicsOptions = {}): HarmonicsReport {
-  const orders = solveHarmonicOrders(board, model, options.solve);
+  // One set of compiled networks for every solve: the study's and each duty state's, at every order.
+  const networks = new CompiledNetworkCache();
+  const orders = solveHarmonicOrders(board, model, options.solve, networks);
   const fundamental: NetworkSolution = orders[0]!.solution;
   const lines = readLines(orders);
   const lineToLine = readLineToLine(orders);
   const neutral = neutralCheck(board, orders, lines);
   const tdd = tddCheck(board, model, lines);
   const scan = scanResonance(fundamental, model, { ...checkedOrders(ordersPresent(model)), ...(options.scanOrders ? { grid: options.scanOrders } : {}) });
-  const duty = capacitorDuty(board, model, boardDutySolver(options.solve));
+  const duty = capacitorDuty(board, model, boardDutySolver(networks, options.solve));
   const phaseNames = conventionsOf(board).phaseNames;
   const voltageDistortion = checkVoltageDistortion(lines, lineToLine);
   // Warnings name phases, pairs and branches the way the board file names them (L1-N or A-N).

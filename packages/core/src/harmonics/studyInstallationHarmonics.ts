@@ -16,7 +16,8 @@ import { labelIn } from '../board/conventions/phaseNames.js';
 import { regionWords } from '../board/conventions/regionWords.js';
 import { boardOfInstallation, installationOf, withBoardLoads } from '../network/installationModel.js';
 import { bankBoardsOf } from './banksInService.js';
-import { solveInstallationNetwork, type InstallationSolution, type SolveOptions } from '../network/solveNetwork.js';
+import { solveCompiledInstallation, type InstallationSolution, type SolveOptions } from '../network/solveNetwork.js';
+import { CompiledNetworkCache } from '../network/compiledNetworkCache.js';
 import { assertViableSolutions } from '../analysis/viableOperatingPoint.js';
 import { addInstalledBank, ordersPresent, resolveHarmonicModel, type BankModel, type HarmonicModel } from './harmonicModel.js';
 import type { HarmonicLoadSpec, InstallationHarmonicsSectionSpec } from './harmonicsSpec.js';
@@ -61,22 +62,26 @@ function boardOrders(b: number, fundamental: InstallationSolution, solved: reado
   return [{ order: 1, solution: fundamental.boards[b]! }, ...solved.map((o) => ({ order: o.order, solution: o.solution.boards[b]! }))];
 }
 
-/** Solves the installation at the fundamental and every order. */
-function solveOrders(installation: Installation, models: readonly HarmonicModel[], solve?: SolveOptions) {
-  const fundamental = solveInstallationNetwork(installation, solve);
-  return { fundamental, solved: ordersOf(models).map((order) => ({ order, solution: solveInstallationAtOrder(fundamental, models, order) })) };
+/** Solves the installation at the fundamental and every order, each through `networks`. */
+function solveOrders(installation: Installation, models: readonly HarmonicModel[], networks: CompiledNetworkCache, solve?: SolveOptions) {
+  const fundamental = solveCompiledInstallation(networks.compileForLoadFlow(installation), solve);
+  return { fundamental, solved: ordersOf(models).map((order) => ({ order, solution: solveInstallationAtOrder(fundamental, models, order, { networks }) })) };
 }
 
 /** Per board, its bank's parts (load numbers): the fixed part and every step. */
 const bankPartsOf = (models: readonly HarmonicModel[]) => models.map((m) => (m.bank ? [...(m.bank.fixedLoad === null ? [] : [m.bank.fixedLoad]), ...m.bank.stepLoads] : []));
 
-/** The duty solver of bank board `b`: the whole installation with that board as the bank state has it. */
-function installationDutySolver(models: readonly HarmonicModel[], b: number, solve?: SolveOptions): DutySolver {
+/**
+ * The duty solver of bank board `b`: the whole installation with that board as the bank state has it.
+ * Every state, condition and other banks' setting changes load powers only (parts switched off draw
+ * nothing, they are not removed), so at each order the circuits repeat and `networks` compiles each once.
+ */
+function installationDutySolver(models: readonly HarmonicModel[], b: number, networks: CompiledNetworkCache, solve?: SolveOptions): DutySolver {
   return (board, model, loadsOff, others) => {
     const { installation } = installationOf(board);
     const at = models.map((m, i) => (i === b ? model : m));
     const switched = others === 'on' ? installation : others === 'off' ? withOtherBanksOff(installation, bankPartsOf(models), b) : withPartsOff(installation, others.partsOff);
-    const { fundamental, solved } = solveOrders(loadsOff ? withInstallationLoadsOff(switched) : switched, at, solve);
+    const { fundamental, solved } = solveOrders(loadsOff ? withInstallationLoadsOff(switched) : switched, at, networks, solve);
     return boardOrders(b, fundamental, solved);
   };
 }
@@ -224,7 +229,9 @@ export interface InstallationHarmonicsOptions extends HarmonicsOptions {
  * @throws {NumericalError} when a solve fails, or reason `collapsed` when a board's supply has collapsed
  */
 export function analyseInstallationHarmonics({ installation, models, bankBoards }: InstallationHarmonicModel, options: InstallationHarmonicsOptions = {}): InstallationHarmonicsReport {
-  const { fundamental, solved } = solveOrders(installation, models, options.solve);
+  // One set of compiled networks for every solve: the study's and each bank's duty states', at every order.
+  const networks = new CompiledNetworkCache();
+  const { fundamental, solved } = solveOrders(installation, models, networks, options.solve);
   // Harmonics of a collapsed state describe nothing that can exist (as the correction study refuses it).
   assertViableSolutions(fundamental.boards);
   const main = fundamental.boards[0]!.board;
@@ -261,7 +268,7 @@ export function analyseInstallationHarmonics({ installation, models, bankBoards 
     const evaluator = createInstallationScanEvaluator(fundamental, models, b);
     const scan = scanResonance(fundamental.boards[b]!, models[b]!, { ...checked, ...(options.scanOrders ? { grid: options.scanOrders } : {}) }, evaluator);
     const jointScan = scanJointResonance(fundamental, models, evaluator, { grid: scan.orders, checkedOrders: scan.checkedOrders, ...(options.jointStateLimit !== undefined ? { stateLimit: options.jointStateLimit } : {}) });
-    const duty = capacitorDuty(fundamental.boards[b]!.board, models[b]!, installationDutySolver(models, b, options.solve), bankBoards.length > 1, jointScan ? switchedOtherBanks(jointScan, names, models) : undefined);
+    const duty = capacitorDuty(fundamental.boards[b]!.board, models[b]!, installationDutySolver(models, b, networks, options.solve), bankBoards.length > 1, jointScan ? switchedOtherBanks(jointScan, names, models) : undefined);
     warnings.push(...harmonicsWarnings({ scan, neutral: null, voltageDistortion: null, duty, tdd: null }, label).map((w) => ({ ...w, board: names[b]! })));
     if (jointScan) warnings.push(...jointResonanceWarnings(names[b]!, scan, jointScan).map((w) => ({ ...w, board: names[b]! })));
     return { board: names[b]!, scan, jointScan, capacitorDuty: duty };

@@ -191,7 +191,7 @@ export class CompiledNetwork {
     this.allImpedance = allImpedance;
 
     // Which nodes reach the reference through something that conducts.
-    this.live = reachable(circuit);
+    this.live = liveNodes(circuit);
     // Ideal EMFs fix their nodes; the rest of the live nodes are unknowns.
     this.kind = new Int8Array(n);
     this.voltageRe = new Float64Array(n).fill(Number.NaN);
@@ -1169,8 +1169,8 @@ export class CompiledNetwork {
   }
 }
 
-/** Nodes with a path of conducting elements, sources or non-zero-power branches to the reference. */
-function reachable(circuit: Circuit): Uint8Array {
+/** Per node, 1 where it has a path of conducting elements, sources or non-zero-power branches to the reference. */
+export function liveNodes(circuit: Circuit): Uint8Array {
   const n = circuit.nodeNames.length;
   const adjacency: number[][] = [];
   for (let v = 0; v <= n; v++) adjacency.push([]);

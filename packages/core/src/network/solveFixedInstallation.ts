@@ -9,7 +9,7 @@
 import { isFiniteComplex, type ComplexValue } from '../complex.js';
 import { NumericalError } from '../errors.js';
 import type { Installation } from '../board/boardModel.js';
-import { injectBranchSource } from './solveFixedNetwork.js';
+import { injectBranchSource, type FixedSolveOptions } from './solveFixedNetwork.js';
 import { compileInstallation, readInstallationSolution, type InstallationSolution } from './solveNetwork.js';
 
 /** Per board (0 = main board, i + 1 = `subBoards[i]`), per load, per branch. */
@@ -28,8 +28,8 @@ export interface FixedInstallationInput {
  * given sources. Branch, line and neutral currents include the sources' currents.
  * @throws {NumericalError} when the network is singular or a voltage is not finite.
  */
-export function solveFixedInstallation(installation: Installation, input: FixedInstallationInput): InstallationSolution {
-  const compiled = compileInstallation(installation);
+export function solveFixedInstallation(installation: Installation, input: FixedInstallationInput, options: FixedSolveOptions = {}): InstallationSolution {
+  const compiled = options.networks ? options.networks.compileForLinearSolve(installation) : compileInstallation(installation);
   const { layout, network: net } = compiled;
   const sources: (ComplexValue | null)[] = new Array(net.branchCount).fill(null);
   const count = installation.subBoards.length + 1;

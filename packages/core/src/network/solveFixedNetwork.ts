@@ -12,6 +12,7 @@ import type { Board } from '../board/boardModel.js';
 import { REFERENCE } from './networkTopology.js';
 import { compileBoard, type BranchState, type NetworkSolution } from './solveNetwork.js';
 import type { CompiledNetwork } from './compiledNetwork.js';
+import type { CompiledNetworkCache } from './compiledNetworkCache.js';
 
 export interface FixedNetworkInput {
   /** Per load, per branch: the admittance to use, S. */
@@ -37,6 +38,15 @@ export function injectBranchSource(net: CompiledNetwork, from: number, to: numbe
   }
 }
 
+export interface FixedSolveOptions {
+  /**
+   * Compiled networks to reuse for a circuit met before (compiledNetworkCache.ts): a study
+   * solving one installation in many states passes one cache to all its solves.
+   * @defaultValue none: the installation is compiled for this solve
+   */
+  readonly networks?: CompiledNetworkCache;
+}
+
 /**
  * Solves `board` as a linear network with fixed admittances and branch current
  * sources. The board's EMFs, source, line and neutral impedances are used as
@@ -45,8 +55,9 @@ export function injectBranchSource(net: CompiledNetwork, from: number, to: numbe
  * `admittance` is the admittance given.
  * @throws {NumericalError} when the network is singular.
  */
-export function solveFixedNetwork(board: Board, input: FixedNetworkInput): NetworkSolution {
-  const { topology: topo, network: net, installation, boardIndex } = compileBoard(board);
+export function solveFixedNetwork(board: Board, input: FixedNetworkInput, options: FixedSolveOptions = {}): NetworkSolution {
+  const { networks } = options;
+  const { topology: topo, network: net, installation, boardIndex } = compileBoard(board, networks ? (i) => networks.compileForLinearSolve(i) : undefined);
   const sourceOf = (l: number, k: number) => input.branchSources?.[l]?.[k] ?? null;
   let index = 0;
   board.loads.forEach((load, l) =>

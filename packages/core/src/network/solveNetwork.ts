@@ -90,10 +90,11 @@ export interface CompiledBoard {
 /**
  * Compiles a board once; `solveCompiledBoard` then solves it as often as needed.
  * A board of an installation compiles the whole installation.
+ * @param compile how the installation is compiled, e.g. through a CompiledNetworkCache
  */
-export function compileBoard(board: Board): CompiledBoard {
+export function compileBoard(board: Board, compile: (installation: Installation) => CompiledInstallation = compileInstallation): CompiledBoard {
   const { installation, boardIndex } = installationOf(board);
-  const compiled = compileInstallation(installation);
+  const compiled = compile(installation);
   return { board, boardIndex, topology: compiled.layout.topologies[boardIndex]!, installation: compiled, network: compiled.network };
 }
 
