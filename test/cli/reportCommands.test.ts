@@ -1,6 +1,6 @@
 /** `trivar report` and `trivar diagram` run as a user would (built binary). */
 import { execFileSync } from 'node:child_process';
-import { mkdtempSync, readFileSync, readdirSync, writeFileSync, copyFileSync } from 'node:fs';
+import { copyFileSync, linkSync, mkdtempSync, readFileSync, readdirSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { dirname, join } from 'node:path';
 import { describe, expect, it } from 'vitest';
@@ -266,6 +266,47 @@ describe('trivar report', () => {
     writeFileSync(clash, before);
     expect(runTrivar(['report', clash, '--format', 'md', '-o', join(dir, 'b.md')]).code).toBe(2);
     expect(readFileSync(clash, 'utf8')).toBe(before);
+  });
+
+  it('never overwrites its input through a hard link, nor one output with another, nor crashes on a bad output place', () => {
+    const dir = scratch();
+    const board = join(dir, 'board.yaml');
+    copyFileSync(join(ROOT, 'examples/corner-bakery.yaml'), board);
+    const before = readFileSync(board, 'utf8');
+    const hard = join(dir, 'also-board.yaml');
+    linkSync(board, hard);
+    for (const args of [
+      ['report', board, '-o', hard],
+      ['diagram', board, '-o', hard],
+      ['rebalance', board, '--write', hard],
+    ]) {
+      const r = runTrivar(args);
+      expect(r.code, args.join(' ')).toBe(2);
+      expect(r.stderr, args.join(' ')).toMatch(/it is an input file|that is the board file being read/);
+      expect(readFileSync(board, 'utf8')).toBe(before);
+    }
+    // A folder, or a folder that does not exist, as the rebalanced file: a clear error, no stack.
+    for (const [target, why] of [
+      [dir, 'it is a directory'],
+      [join(dir, 'no-such-folder', 'out.yaml'), 'its folder does not exist'],
+    ] as const) {
+      const r = runTrivar(['rebalance', board, '--write', target]);
+      expect(r.code).toBe(2);
+      expect(r.stderr).toContain(why);
+      expect(r.stderr).not.toMatch(/internal error|\bat \S+ \(/);
+    }
+    // Two outputs of one command on one file: the second would silently replace the first.
+    const data = join(ROOT, 'examples/osier-mill-day.csv');
+    const profileBoard = join(ROOT, 'examples/osier-mill-studios.yaml');
+    const twice = runTrivar(['profile', profileBoard, '--data', data, '--summary-csv', join(dir, 's.csv'), '--intervals-csv', join(dir, '.', 's.csv')]);
+    expect(twice.code).toBe(2);
+    expect(twice.stderr).toContain('is written by this command too');
+    // Charts into a path that is a file.
+    writeFileSync(join(dir, 'afile'), 'x');
+    const charts = runTrivar(['profile', profileBoard, '--data', data, '--charts', join(dir, 'afile')]);
+    expect(charts.code).toBe(2);
+    expect(charts.stderr).toContain('is a file');
+    expect(charts.stderr).not.toMatch(/internal error/);
   });
 
   it('an invalid board: exit 3 with the field path, and no report file written', () => {

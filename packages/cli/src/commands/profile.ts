@@ -1,5 +1,4 @@
 /** `trivar profile`: interval data (or the board file's scenarios) through the batch solver. */
-import { mkdirSync } from 'node:fs';
 import { availableParallelism } from 'node:os';
 import { join } from 'node:path';
 import {
@@ -25,7 +24,7 @@ import type { CliIo } from '../io.js';
 import { profileCollapseOf, UsageError } from '../exitCodes.js';
 import { inFileSection } from './correct.js';
 import { boardCorrection, switchedBankOf } from './fileCorrectionStudy.js';
-import { assertNotInput, writeOutputFile } from '../outputFiles.js';
+import { assertNotInput, makeOutputFolder, writeOutputFile } from '../outputFiles.js';
 import { writeResult } from '../writeResult.js';
 import { readCsvHeader, readIntervalRows } from '../read/intervalCsv.js';
 import { timeZoneOption } from '../read/timeZoneOption.js';
@@ -149,7 +148,7 @@ export async function runProfile(file: string, options: ProfileCommandOptions, i
   if (options.summaryCsv) writeOutputFile(options.summaryCsv, summaryCsv(study.result, label));
   if (options.intervalsCsv) writeOutputFile(options.intervalsCsv, intervalCsv(study, label));
   if (options.charts) {
-    mkdirSync(options.charts, { recursive: true });
+    makeOutputFolder(options.charts);
     writeProfileCharts(study, (name, text) => writeOutputFile(join(options.charts!, name), text), label);
   }
   writeResult(io, study.result, options.json, (r) => renderProfileReport(r, currency, label));

@@ -1,5 +1,4 @@
 /** `trivar profile` on an installation file: the interval data through every board and feeder at once. */
-import { mkdirSync } from 'node:fs';
 import { availableParallelism } from 'node:os';
 import { join } from 'node:path';
 import {
@@ -28,7 +27,7 @@ import { readCsvHeader, readIntervalRows } from '../read/intervalCsv.js';
 import { timeZoneOption } from '../read/timeZoneOption.js';
 import { renderInstallationProfileReport, renderInstallationScenarioReport } from '../format/installationProfileReport.js';
 import { startProgress } from '../progress.js';
-import { assertNotInput, writeOutputFile } from '../outputFiles.js';
+import { assertNotInput, makeOutputFolder, writeOutputFile } from '../outputFiles.js';
 import { installationIntervalCsv, installationSummaryCsv } from '../format/profileCsv.js';
 import { CHART_FILES, FEEDER_CHART_FILE, writeInstallationProfileCharts } from '../format/profileChartFiles.js';
 import type { ProfileCommandOptions } from './profile.js';
@@ -169,7 +168,7 @@ export async function runProfileInstallation(input: unknown, options: ProfileCom
   if (options.intervalsCsv) writeOutputFile(options.intervalsCsv, installationIntervalCsv(study, installation.main.nominalLineToNeutralV, label));
   if (options.charts) {
     const dir = options.charts;
-    for (const folder of folders.values()) mkdirSync(join(dir, folder), { recursive: true });
+    for (const folder of folders.values()) makeOutputFolder(join(dir, folder));
     writeInstallationProfileCharts(study, (board, name, text) => writeOutputFile(board === null ? join(dir, name) : join(dir, folders.get(board)!, name), text), label);
   }
   writeResult(io, study.result, options.json, (r) => renderInstallationProfileReport(r, spec.profile?.tariff?.currency ?? 'units'));

@@ -1,6 +1,5 @@
 /** `trivar rebalance`: which circuits to move to which phase, on a board or any board of an installation; optional rewritten file. */
-import { existsSync, realpathSync, statSync, writeFileSync } from 'node:fs';
-import { resolve } from 'node:path';
+import { sameFile, writeOutputFile } from '../outputFiles.js';
 import { availableParallelism } from 'node:os';
 import {
   checkIntervalSequence,
@@ -41,16 +40,6 @@ export interface RebalanceCommandOptions extends RebalanceStudyOptions {
   readonly json?: boolean;
   readonly method?: 'auto' | 'exact' | 'local-search';
   readonly write?: string;
-}
-
-/** True when two paths name the same file (also through links). */
-function sameFile(a: string, b: string): boolean {
-  if (resolve(a) === resolve(b)) return true;
-  if (!existsSync(a) || !existsSync(b)) return false;
-  if (realpathSync(a) === realpathSync(b)) return true;
-  const sa = statSync(a);
-  const sb = statSync(b);
-  return sa.dev === sb.dev && sa.ino === sb.ino;
 }
 
 /** The interval table of `data` read against a column plan, with the command's time zone and spread checked. */
@@ -131,7 +120,7 @@ export async function runRebalance(file: string, options: RebalanceCommandOption
     }
     throw error;
   }
-  if (options.write !== undefined) writeFileSync(options.write, rewriteBoardText(text, report.moves));
+  if (options.write !== undefined) writeOutputFile(options.write, rewriteBoardText(text, report.moves));
   writeResult(io, report, options.json, renderRebalanceReport);
   return report;
 }
