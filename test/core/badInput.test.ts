@@ -89,6 +89,12 @@ const cases: [string, unknown, string, string][] = [
   }), 'conflict', 'supply'],
   ['transformer impedance 0 %', edit((b) => (b.supply.transformer = { kVA: 100, impedancePercent: 0, xOverR: 2 })), 'out_of_range', 'supply.transformer.impedancePercent'],
   ['EMF missing a phase', edit((b) => (b.supply.emf = { A: { V: 231, angleDeg: 0 }, B: { V: 231, angleDeg: -120 } })), 'missing', 'supply.emf.C'],
+  // Read the other way round, the sequence parts swap: a 2.5 % unbalance came out as 3,984 %.
+  ['EMF angles turning ABC on a supply declared ACB', edit((b) => {
+    b.supply.sequence = 'ACB';
+    b.supply.emf = { A: { V: 240, angleDeg: 0 }, B: { V: 220, angleDeg: -120 }, C: { V: 230, angleDeg: 120 } };
+  }), 'conflict', 'supply.emf'],
+  ['EMF angles turning ACB with no sequence given (ABC)', edit((b) => (b.supply.emf = { A: { V: 231, angleDeg: 0 }, B: { V: 231, angleDeg: 120 }, C: { V: 231, angleDeg: -120 } })), 'conflict', 'supply.emf'],
   ['sense without pf', edit((b) => {
     delete b.loads[0].pf;
     b.loads[0].kvar = 2;

@@ -63,6 +63,47 @@ function ruleEmfPhases(board: BoardBaseSpec, naming: PhaseNaming): InputIssue[] 
   return issues;
 }
 
+/**
+ * Three EMFs given by angle turn one way: the phase order they describe must be the supply's `sequence`
+ * (ABC when not given). Read the other way round, their positive- and negative-sequence parts swap, and
+ * every unbalance figure is its reciprocal (a 2.5 % supply reported at 4,000 %). Told apart by which
+ * sequence part is the larger (Fortescue).
+ */
+function ruleEmfSequence(board: BoardBaseSpec, naming: PhaseNaming): InputIssue[] {
+  const emf = board.supply.emf;
+  if (!emf || !isThreePhase(board.supply.system) || !emf.A || !emf.B || !emf.C) return [];
+  const rad = Math.PI / 180;
+  // Σ E_k·e^{j(θ_k + 120°·k·turn)}: the positive-sequence sum for ABC with turn +1, for ACB with turn −1.
+  const part = (turn: 1 | -1) => {
+    let re = 0;
+    let im = 0;
+    (['A', 'B', 'C'] as const).forEach((p, k) => {
+      const angle = (emf[p]!.angleDeg + 120 * k * turn) * rad;
+      re += emf[p]!.V * Math.cos(angle);
+      im += emf[p]!.V * Math.sin(angle);
+    });
+    return Math.hypot(re, im);
+  };
+  const declared = board.supply.sequence ?? 'ABC';
+  const turnsAbc = part(1) > part(-1);
+  const described = turnsAbc ? 'ABC' : 'ACB';
+  if (described === declared) return [];
+  const label = labellerOf(naming);
+  const order = (seq: string) => {
+    const labels = [...seq].map((p) => label(p as 'A'));
+    return labels.join(labels.some((l) => l.length > 1) ? '-' : '');
+  };
+  const given = board.supply.sequence === undefined ? ' (the default: the file gives none)' : '';
+  return [
+    inputIssue(
+      'conflict',
+      'supply.emf',
+      `EMF angles that turn in the supply's sequence ${order(declared)}${given}, e.g. ${label('B')} at ${order(declared) === order('ABC') ? '−120°' : '+120°'} from ${label('A')}; or sequence: ${described} if the supply turns that way`,
+      `angles that turn ${order(described)}`,
+    ),
+  ];
+}
+
 function conductorIssues(conductor: ConductorSpec | undefined, path: string, feeder: FeederSpec | undefined): InputIssue[] {
   if (!conductor) return [];
   const direct = conductor.r !== undefined || conductor.x !== undefined;
@@ -285,7 +326,7 @@ export function partialBoardIssues(parts: BoardParts, naming: PhaseNaming): Inpu
   const issues: InputIssue[] = [];
   if (parts.supply) {
     const board = { supply: parts.supply, feeder: parts.feeder ?? undefined, loads: [] } as unknown as BoardBaseSpec;
-    issues.push(...ruleVoltageGiven(board), ...ruleSourceImpedance(board), ...ruleUnequalSource(board, naming), ...ruleEmfPhases(board, naming));
+    issues.push(...ruleVoltageGiven(board), ...ruleSourceImpedance(board), ...ruleUnequalSource(board, naming), ...ruleEmfPhases(board, naming), ...ruleEmfSequence(board, naming));
     if (parts.feeder !== null) issues.push(...ruleFeeder(board, naming));
   }
   issues.push(...loadIssues(parts.loads, parts.supply?.system ?? null, naming));
@@ -293,4 +334,4 @@ export function partialBoardIssues(parts: BoardParts, naming: PhaseNaming): Inpu
 }
 
 /** The board's own rules; boardFile/ appends the studies' rules after these. */
-export const BOARD_RULES: readonly BoardRule[] = [ruleVoltageGiven, ruleSourceImpedance, ruleUnequalSource, ruleEmfPhases, ruleFeeder, ruleLoads];
+export const BOARD_RULES: readonly BoardRule[] = [ruleVoltageGiven, ruleSourceImpedance, ruleUnequalSource, ruleEmfPhases, ruleEmfSequence, ruleFeeder, ruleLoads];
