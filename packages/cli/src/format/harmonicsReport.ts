@@ -13,7 +13,7 @@ const MAX_ORDER_COLUMNS = 8;
 const thd = (d: DistortionReading) => (d.thdPercent === null ? '-' : fixed(d.thdPercent, 1));
 const orderPercent = (d: DistortionReading, h: number) => {
   const o = d.orders.find((x) => x.order === h);
-  return o ? fixed(o.percentOfFundamental, 1) : '';
+  return o ? (o.percentOfFundamental === null ? '-' : fixed(o.percentOfFundamental, 1)) : '';
 };
 
 /** A phase, pair or branch as the board file names it (L1-N or A-N). */
@@ -56,7 +56,7 @@ export function voltageTable(r: BoardReadings): string {
 function largestOrder(d: DistortionReading): string {
   if (d.orders.length === 0) return '-';
   const o = d.orders.reduce((a, b) => (b.magnitude > a.magnitude ? b : a));
-  return `h${o.order} ${fixed(o.percentOfFundamental, 1)} %`;
+  return o.percentOfFundamental === null ? `h${o.order} ${fixed(o.magnitude, 1)}` : `h${o.order} ${fixed(o.percentOfFundamental, 1)} %`;
 }
 
 export function neutralLines(n: NeutralCheck): string[] {

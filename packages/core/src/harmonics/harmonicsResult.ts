@@ -11,7 +11,8 @@ export interface OrderReading {
   /** rms magnitude, A or V. */
   readonly magnitude: number;
   /** % of the fundamental of the same quantity. */
-  readonly percentOfFundamental: number;
+  /** Null where the fundamental is round-off (a neutral whose fundamentals cancel): no share of it means anything. */
+  readonly percentOfFundamental: number | null;
   readonly angleDeg: number;
 }
 

@@ -14,21 +14,27 @@ export interface OrderSolution {
   readonly solution: NetworkSolution;
 }
 
+/** Share of a quantity's rms below which its fundamental is round-off of a cancellation, not a value. */
+const ROUND_OFF = 1e-9;
+
 /** Reads a quantity, given per order, into rms/THD/orders. `values[0]` is the fundamental. */
 export function distortionOf(values: readonly { order: number; value: ComplexValue }[]): DistortionReading {
   const fundamental = abs(values.find((v) => v.order === 1)?.value ?? ZERO);
   const harmonics = values.filter((v) => v.order !== 1);
   const rms = Math.sqrt(values.reduce((s, v) => s + absSquared(v.value), 0));
   const distortion = Math.sqrt(harmonics.reduce((s, v) => s + absSquared(v.value), 0));
+  // A fundamental at round-off beside the harmonics (a neutral whose fundamentals cancel, carrying only
+  // triplens) gives no percentage: dividing by it would show noise as 10^17 %.
+  const defined = fundamental > ROUND_OFF * rms;
   const orders = harmonics.map(
     (v): OrderReading => ({
       order: v.order,
       magnitude: abs(v.value),
-      percentOfFundamental: fundamental > 0 ? (100 * abs(v.value)) / fundamental : 0,
+      percentOfFundamental: defined ? (100 * abs(v.value)) / fundamental : null,
       angleDeg: radToDeg(arg(v.value)),
     }),
   );
-  return { rms, fundamental, thdPercent: fundamental > 0 ? (100 * distortion) / fundamental : null, orders };
+  return { rms, fundamental, thdPercent: defined ? (100 * distortion) / fundamental : null, orders };
 }
 
 /** Voltage of each phase bus to the neutral bar, or to the centroid of the bus voltages on a 3-wire board. */

@@ -190,7 +190,9 @@ export function assumptions(board: Board, model: HarmonicModel, otherBanks = fal
     ...(board.sourceStarImpedance || board.openDeltaCorner
       ? [`${words.sourceNeutralPoint} ${words.groundWord}ed as the file gives it (zero-sequence impedance or open delta), in the solve at each order and in the frequency scan alike`]
       : []),
-    `linear loads as ${[...forms].join(' and ') || 'none'} R/X from their solved fundamental values (rated loads default to parallel R ‖ jX, loads in ohms and capacitors keep series form)`,
+    forms.size
+      ? `linear loads as ${[...forms].join(' and ')} R/X from their solved fundamental values (rated loads default to parallel R ‖ jX, loads in ohms and capacitors keep series form)`
+      : 'no linear loads: every load is a harmonic source (its fundamental draws as solved)',
     'non-linear loads as ideal current sources; injection angle = spectrum angle + h × the angle of the load’s fundamental current',
     `source and feeder resistance ${model.resistance === 'constant' ? 'constant with frequency' : '× √h (skin effect)'}; reactances × h (inductive) or / h (capacitive)`,
     ...(model.bank

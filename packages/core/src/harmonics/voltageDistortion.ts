@@ -8,7 +8,7 @@ import { IEEE_519_VOLTAGE_LIMITS, IEEE_519_VOLTAGE_SOURCE } from './ieee519.js';
 
 function busCheck(bus: string, voltage: DistortionReading): BusVoltageDistortion {
   const { individualPercent, thdPercent } = IEEE_519_VOLTAGE_LIMITS;
-  const orders = voltage.fundamental > 0 ? voltage.orders.map((o) => ({ order: o.order, percent: o.percentOfFundamental })) : [];
+  const orders = voltage.orders.flatMap((o) => (o.percentOfFundamental === null ? [] : [{ order: o.order, percent: o.percentOfFundamental }]));
   const largest = orders.reduce<{ order: number; percent: number } | null>((best, o) => (best === null || o.percent > best.percent ? o : best), null);
   const ordersAbove = orders.filter((o) => o.percent > individualPercent);
   return { bus, thdPercent: voltage.thdPercent, largest, ordersAbove, ok: ordersAbove.length === 0 && (voltage.thdPercent === null || voltage.thdPercent <= thdPercent) };
