@@ -27,6 +27,15 @@ describe('trivar solve (built binary)', () => {
     // "N", the bar voltage 0.0 and the neutral current 0.0, nothing else (no angles).
     expect(n.trim().split(/\s+/)).toEqual(['N', '0.0', '0.0']);
   });
+  it('the note on loads across two lines comes with such a load only, not with a balanced delta motor', () => {
+    const head = 'supply: { system: three-phase-4wire, voltage: { lineToLine: 400 }, frequencyHz: 50 }\nloads:\n';
+    const motor = '  - { name: fan motor, connection: ABC-delta, kW: 11, pf: 0.8 }\n';
+    const note = /A load across two lines splits its power unevenly/;
+    expect(runTrivar(['solve', '-'], head + motor).stdout).not.toMatch(note);
+    const welder = runTrivar(['solve', '-'], `${head}${motor}  - { name: welder, connection: A-B, kW: 6, pf: 0.98 }\n`).stdout;
+    expect(welder.replace(/\s+/g, ' ')).toMatch(note);
+  });
+
   it('--json prints exactly the library result', () => {
     const r = runTrivar(['solve', 'examples/corner-bakery.yaml', '--json']);
     expect(r.code).toBe(0);

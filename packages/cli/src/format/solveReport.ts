@@ -107,8 +107,11 @@ function phaseTable(r: BoardResult): string {
         : `N row: neutral bar voltage to ${words.sourceNeutralPoint}, and the current in the ${words.neutralConductor}.`,
     );
   // Three-phase only: on a split-phase board the two lines are 180° apart, so a load across them is in phase with both.
-  if (r.board.system !== 'split-phase' && r.loads.some((l) => /^[ABC]-[ABC]$|delta/.test(l.connection)))
-    notes.push('Line-to-line loads split their power unevenly between their two lines: one line leads, the other lags.');
+  // A three-phase delta load splits evenly; only a single load across two lines shifts its shares.
+  if (r.board.system !== 'split-phase' && r.loads.some((l) => /^[ABC]-[ABC]$/.test(l.connection)))
+    notes.push(
+      'A load across two lines splits its power unevenly between them: each line’s share is shifted by 30°, one towards lagging, the other towards leading (near unity PF, one line’s share leads).',
+    );
   for (const p of r.phases) {
     const sentence = exportSentence(`Line ${label(p.phase)}`, p, 'exports');
     if (sentence) notes.push(sentence);
