@@ -139,3 +139,38 @@ describe('resonance scan', () => {
     expect(r.capacitorDuty!.capacitorVoltageV).toBeCloseTo(400 / 0.93, 9);
   });
 });
+
+describe('capacitors above their continuous voltage while within the 8-hour limit', () => {
+  // A bottling hall (invented): 400 V units on a 400 V board behind a stiff transformer; the bank's own
+  // rise puts them just above their rating at the design point.
+  const spec = {
+    name: 'bottling hall',
+    supply: { system: 'three-phase-4wire', voltage: { lineToLine: 400 }, frequencyHz: 50, transformer: { kVA: 400, impedancePercent: 6, xOverR: 5 } },
+    loads: [
+      { name: 'conveyor drives', connection: 'ABC-delta', kW: 150, pf: 0.8 },
+      { name: 'chillers', connection: 'ABC-delta', kW: 100, pf: 0.82 },
+    ],
+    harmonics: { background: [{ order: 5, percent: 1 }], bank: { connection: 'delta', ratedV: 400, stepsKvar: [67, 67, 67, 67] } },
+  } as unknown as BoardSpec;
+  const r = studyHarmonics(spec);
+  const duty = r.capacitorDuty!;
+
+  it('IEC 60831-1: the running state above 1.00 U_N is warned of, with the rating that would do', () => {
+    const running = duty.continuousVoltage!;
+    expect(running.limitPu).toBe(1);
+    expect(running.highestPu).toBeGreaterThan(1);
+    expect(running.highestPu).toBeLessThan(duty.limits.voltageRms);
+    // The running state is the worst nominal-capacitance state with the loads as given.
+    expect(running.highestPu).toBeGreaterThanOrEqual(duty.worstNominal.figures.voltageRms);
+    const w = r.warnings.find((x) => x.code === 'capacitor-continuous-voltage')!;
+    expect(w.value).toBe(running.highestPu);
+    expect(w.message).toContain(`${running.highestPu.toFixed(3)} × their rated voltage`);
+    expect(w.message).toMatch(/units rated at least 405 V/);
+  });
+
+  it('IEEE 18 (110 % continuous): no such warning, the duty check is the continuous one', () => {
+    const ieee = studyHarmonics({ ...spec, harmonics: { ...(spec as { harmonics: object }).harmonics, capacitorStandard: 'ieee-18' } } as unknown as BoardSpec);
+    expect(ieee.capacitorDuty!.continuousVoltage).toBeNull();
+    expect(ieee.warnings.map((x) => x.code)).not.toContain('capacitor-continuous-voltage');
+  });
+});

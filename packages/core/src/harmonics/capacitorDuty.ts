@@ -27,6 +27,12 @@ export const DUTY_LIMITS: Readonly<Record<CapacitorDuty['standard'], { limits: D
 };
 
 /**
+ * The rms voltage a capacitor stands continuously, per unit of its rating, where it is below the duty
+ * limit above: IEC 60831-1's 1.00 U_N (from memory). IEEE 18's 110 % is itself continuous.
+ */
+export const CONTINUOUS_VOLTAGE_PU: Readonly<Record<CapacitorDuty['standard'], number | null>> = { 'ieee-18': null, 'iec-60831-1': 1.0 };
+
+/**
  * Figures per unit for one bank branch from its branch voltage at each order. `capacitanceFactor`
  * is the units' capacitance over nominal: current and kvar scale with it [METHODS §4].
  */

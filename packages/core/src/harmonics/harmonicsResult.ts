@@ -247,6 +247,12 @@ export interface CapacitorDuty {
   readonly worstNominal: DutyCase;
   /** Highest fundamental rms voltage across a capacitor element in any state and condition, V. */
   readonly highestCapacitorVoltageV: number;
+  /**
+   * Where the standard's continuous voltage is below its duty limit (IEC 60831-1: 1.00 U_N against 1.10 for
+   * 8 h in every 24 h): the highest rms voltage (with harmonics, per unit of rating) at nominal capacitance
+   * with the loads as given, the running state, and the state it is in. Null otherwise.
+   */
+  readonly continuousVoltage: { readonly limitPu: number; readonly highestPu: number; readonly label: string; readonly branch: string } | null;
   readonly ok: boolean;
 }
 

@@ -43,6 +43,8 @@ export const harmonicsWarningText = {
       moreStates > 0 ? ` (likewise ${moreStates} more state${moreStates > 1 ? 's' : ''} of this bank)` : ''
     }; with every other bank fully on that state is clear of order ${order}, so voltages and capacitor currents are amplified there when the other banks step down`,
   capacitorDuty: (label: string, branch: string, what: string) => `with ${label} the capacitors of branch ${branch} exceed their limit: ${what}`,
+  continuousVoltage: (label: string, branch: string, pu: number, limit: number, ratedV: number) =>
+    `with ${label}, at nominal capacitance and the loads as given, the capacitors of branch ${branch} run at ${pu.toFixed(3)} × their rated voltage (rms with harmonics), above the ${limit.toFixed(2)} × they stand continuously (IEC 60831-1; the 1.10 × the duty check allows is for 8 h in every 24 h): units rated at least ${Math.ceil((pu * ratedV) / 5) * 5} V run within it`,
   voltageThd: (bus: string, thd: number, limit: number) => `voltage THD at the board on ${bus} is ${above(thd, limit)}, above the ${limit} % IEEE 519 limit for ≤ 1 kV`,
   voltageIndividual: (buses: readonly BusVoltageDistortion[], limit: number) =>
     `a single harmonic of the board voltage is above the ${limit} % IEEE 519 limit for ≤ 1 kV (% of the fundamental): ${buses

@@ -15,7 +15,7 @@ import { addInstalledBank, ordersPresent, resolveHarmonicModel, stateKey, type B
 import { solveAtOrder } from './networkAtOrder.js';
 import { readLines, readLineToLine, readNeutral, type OrderSolution } from './readHarmonics.js';
 import { combinationLabel, scanResonance, stepCombinations } from './scanResonance.js';
-import { DUTY_LIMITS, dutyCase, dutyRatio } from './capacitorDuty.js';
+import { CONTINUOUS_VOLTAGE_PU, DUTY_LIMITS, dutyCase, dutyRatio } from './capacitorDuty.js';
 import { conditionWords, dutyConditions, withCapacitanceFactor, withLoadsOff } from './dutyConditions.js';
 import { IEEE_519_SOURCE, ieee519OrderLimit, ieee519Row } from './ieee519.js';
 import { checkVoltageDistortion } from './voltageDistortion.js';
@@ -166,6 +166,8 @@ export function capacitorDuty(board: Board, model: HarmonicModel, solveOrders: D
   if (cases.length === 0) return null;
   const worstOf = (list: readonly DutyCase[]) => list.reduce((w, c) => (ratio(c) > ratio(w) ? c : w));
   const vNetwork = bank.elementNominalV;
+  const continuousPu = CONTINUOUS_VOLTAGE_PU[model.capacitorStandard];
+  const running = nominalCases.length ? nominalCases.reduce((w, c) => (c.figures.voltageRms > w.figures.voltageRms ? c : w)) : null;
   return {
     standard: model.capacitorStandard,
     limits,
@@ -179,6 +181,8 @@ export function capacitorDuty(board: Board, model: HarmonicModel, solveOrders: D
     worst: worstOf(cases),
     worstNominal: worstOf(nominalCases),
     highestCapacitorVoltageV,
+    continuousVoltage:
+      continuousPu === null || running === null ? null : { limitPu: continuousPu, highestPu: running.figures.voltageRms, label: running.label, branch: running.branch },
     ok: cases.every((c) => c.ok),
   };
 }
@@ -257,6 +261,10 @@ export function harmonicsWarnings({ scan, neutral, voltageDistortion, duty, tdd,
   if (duty)
     for (const c of duty.cases)
       if (!c.ok) warn('capacitor-duty', harmonicsWarningText.capacitorDuty(`${c.label} (${conditionWords(c.condition)})`, label(c.branch), dutyMessage(c, duty.limits)), dutyRatio(c.figures, duty.limits), 1);
+  // Within the 8-hour limit (past it, the duty warning says so) but above the continuous rating in the running state: units rated too low.
+  const running = duty?.continuousVoltage;
+  if (duty && running && running.highestPu > running.limitPu * (1 + 1e-9) && running.highestPu <= duty.limits.voltageRms)
+    warn('capacitor-continuous-voltage', harmonicsWarningText.continuousVoltage(running.label, label(running.branch), running.highestPu, running.limitPu, duty.ratedV), running.highestPu, running.limitPu);
   if (tdd)
     for (const l of tdd.lines) {
       const over = l.orders.filter((o) => !o.ok).map((o) => o.order);
