@@ -54,6 +54,32 @@ describe('correct report wording', () => {
     expect(r.stdout).not.toMatch(/ranges that hold together/);
   });
 
+  it('a compensator no unit suits on some branches, built on the rest: said as part built, its figures shown, the branches named', () => {
+    // A corner store (invented) on 208Y/120: the typical North-American catalogue has no 120 V unit.
+    const text = [
+      'name: Corner store',
+      'supply: { system: three-phase-4wire, voltage: 208Y/120, frequencyHz: 60, transformer: { kVA: 75, impedancePercent: 3.5, xOverR: 2 } }',
+      'loads:',
+      '  - { name: rooftop unit, connection: ABC-delta, kW: 20, pf: 0.78 }',
+      '  - { name: display fridges, connection: A-N, kW: 3, pf: 0.6 }',
+      '  - { name: oven fans, connection: B-N, A: 18, pf: 0.9 }',
+      '',
+    ].join('\n');
+    const board = normaliseBoard(parseBoard(readBoardText(text)));
+    const report = correctBoard(board, { arrangement: 'balancing-compensator' });
+    expect(report.status).toBe('no-suitable-units');
+    const unbuilt = report.selection!.unbuildable!.branches;
+    expect(unbuilt.length).toBeGreaterThan(0);
+    expect(report.selection!.units).toBeGreaterThan(0);
+    expect(report.summary).toContain(`no unit of the catalogue suits ${unbuilt.join(', ')}; the rest, ${report.selection!.deliveredKvar.toFixed(2)} kvar delivered`);
+    const compared = runTrivar(['correct', '-'], text).stdout;
+    const row = compared.split('\n').find((l) => /^\s+compensator\s/.test(l))!;
+    expect(row).toMatch(/part built\s+\d+\.\d\s+\d+\.\d\s+\d+\s+\d+/);
+    expect(compared.replace(/\s+/g, ' ')).toContain('part built: no unit suits some branches, the rest built without them');
+    const alone = runTrivar(['correct', '-', '--arrangement', 'balancing-compensator'], text).stdout;
+    expect(alone).toMatch(/^NO SUITABLE UNITS for part of this arrangement/m);
+  });
+
   it('where nothing is added no cost figure is quoted for it', () => {
     const { board } = boardOf('examples/corner-bakery.yaml');
     const c = compareCorrections(board, { target: { definition: 'vector' } });

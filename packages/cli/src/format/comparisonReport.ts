@@ -37,10 +37,12 @@ function row(o: ArrangementOutcome, names: Readonly<Record<Arrangement, string>>
   const name = names[o.arrangement] ?? o.arrangement;
   if (!o.report || !o.figures) return [name, 'not applicable', '', '', '', '', '', '', '', ''];
   const f = o.figures;
-  const built = o.report.status !== 'no-suitable-units';
+  // Without units for some branches the rest may still be built: its figures are shown, the verdict says part.
+  const built = (o.report.selection?.units ?? 0) > 0;
+  const partBuilt = built && o.report.status === 'no-suitable-units';
   return [
     name,
-    VERDICT[o.report.status] ?? o.report.status,
+    partBuilt ? 'part built' : (VERDICT[o.report.status] ?? o.report.status),
     built ? fixed(f.deliveredKvar, 1) + (f.reactorKvar > 0 ? `+L${fixed(f.reactorKvar, 1)}` : '') : '-',
     built ? fixed(f.nameplateKvar, 1) : '-',
     built ? String(f.units) : '-',
@@ -86,7 +88,7 @@ export function renderComparisonReport(c: CorrectionComparison): string {
       ) +
       '\n' +
       [
-        `${names['star-bank'] === TWO_LINE_TABLE_NAMES['star-bank'] ? `${TWO_LINE_LEGEND}; ` : ''}delivered: kvar at the solved voltage (+L: reactor kvar); nom C: at nominal capacitance only; plate: nameplate kvar; PF after: the PF the target is defined on (per-line: the lowest line); neutral: A after; loss: source + feeder after`,
+        `${names['star-bank'] === TWO_LINE_TABLE_NAMES['star-bank'] ? `${TWO_LINE_LEGEND}; ` : ''}delivered: kvar at the solved voltage (+L: reactor kvar); nom C: at nominal capacitance only;${c.outcomes.some((o) => o.report?.status === 'no-suitable-units' && (o.report.selection?.units ?? 0) > 0) ? ' part built: no unit suits some branches, the rest built without them;' : ''} plate: nameplate kvar; PF after: the PF the target is defined on (per-line: the lowest line); neutral: A after; loss: source + feeder after`,
         ...c.outcomes.filter((o) => o.notApplicable).map((o) => `${arrangementNames(system)[o.arrangement]}: ${o.notApplicable}`),
       ]
         .map((l) => wrapText(l, '  ', '    '))

@@ -386,7 +386,7 @@ export function renderCorrectionReport(r: CorrectionReport): string {
     wrapText(`correction: ${arrangementDescriptions(v.before.board.system)[r.arrangement]}`, '', '  '),
     wrapText(`target: ${targetWords(r)}`, '', '  '),
     '',
-    wrapText(`${STATUS_WORDS[r.status] ?? r.status} — ${r.summary}`, '', '  '),
+    wrapText(`${r.status === 'no-suitable-units' && (r.selection?.units ?? 0) > 0 ? 'NO SUITABLE UNITS for part of this arrangement' : (STATUS_WORDS[r.status] ?? r.status)} — ${r.summary}`, '', '  '),
     ...r.reasons.map((x) => wrapText(x, '  - ', '    ')),
     ...balanceLine(r).map((x) => wrapText(x, '  ', '    ')),
   ];

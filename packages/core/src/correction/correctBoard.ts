@@ -306,7 +306,12 @@ export function correctBoard(board: Board, spec: unknown): CorrectionReport {
   return {
     arrangement: parsed.arrangement,
     status,
-    summary: (status === 'already-meets-target' ? reportSummary[status](what) : reportSummary[status](what, delivered, nameplate)) + reactorWords(recommended, label),
+    summary:
+      (status === 'already-meets-target'
+        ? reportSummary[status](what)
+        : status === 'no-suitable-units'
+          ? reportSummary[status](what, delivered, nameplate, (selection?.unbuildable?.branches ?? []).map(label))
+          : reportSummary[status](what, delivered, nameplate)) + reactorWords(recommended, label),
     reasons,
     target,
     sizing,

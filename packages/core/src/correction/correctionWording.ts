@@ -259,7 +259,11 @@ export const reportSummary = {
   'already-meets-target': (what: string) => `${what}: the board already meets the target, nothing to add`,
   'misses-target-with-available-units': (what: string, delivered: number, nameplate: number) =>
     `${what}: the best build of the available units, ${bankWords(delivered, nameplate)}, misses the target`,
-  'no-suitable-units': (what: string) => `${what}: no unit of the catalogue suits the voltage across the bank`,
+  /** With `unbuilt`, the branches no unit suits while the rest was built (`delivered`, `nameplate`). */
+  'no-suitable-units': (what: string, delivered = 0, nameplate = 0, unbuilt: readonly string[] = []) =>
+    unbuilt.length && nameplate > 0
+      ? `${what}: no unit of the catalogue suits ${unbuilt.join(', ')}; the rest, ${bankWords(delivered, nameplate)}, is built without ${unbuilt.length === 1 ? 'it' : 'them'} below`
+      : `${what}: no unit of the catalogue suits the voltage across the bank`,
   infeasible: (what: string, delivered: number, nameplate: number) =>
     `${what}: the target cannot be met with capacitors in this arrangement; the best reachable build is ${bankWords(delivered, nameplate)}`,
 };
@@ -309,7 +313,7 @@ const STATUS_SHORT: Record<string, string> = {
   'already-meets-target': 'has nothing to add',
   'misses-target-with-available-units': 'misses the target with the available units',
   infeasible: 'cannot reach the target with capacitors',
-  'no-suitable-units': 'has no unit that suits its voltage',
+  'no-suitable-units': 'has no unit that suits the voltage across its branches (some or all)',
 };
 
 export const comparisonWording = {
