@@ -59,7 +59,7 @@ const branchWords = (s: BankStep, label: PhaseLabeller) =>
     ? `${label('ABC')} ${s.branches[0]!.endsWith('-N') ? 'star-N' : s.branches[0]!.endsWith('-star') ? 'star' : 'delta'}`
     : s.branches.map(label).join(' ');
 const unitWords = (s: BankStep) => `${s.unit.kind === 'three-phase' ? '3-ph' : '1-ph'} ${fixed(s.unit.ratedKvar, 2)} kvar ${fixed(s.unit.ratedV, 0)} V`;
-const partWords: Record<BankStep['part'], string> = { fixed: 'fixed', balanced: 'equal', trim: 'trim', single: 'single' };
+const partWords: Record<BankStep['part'], string> = { fixed: 'fixed', balanced: 'balanced', trim: 'trim', single: 'single' };
 
 function stepsTable(sel: BankSelection, label: PhaseLabeller): string {
   return renderTable(
@@ -113,7 +113,7 @@ function branchTable(sel: BankSelection, label: PhaseLabeller): string {
     ],
     sel.selections.map((s) => [
       label(s.branch),
-      emptyWindow(s) ? 'none (see below)' : `${fixed(s.minimumCapacitanceUF, 1)} – ${s.maximumCapacitanceUF === null ? '?' : fixed(s.maximumCapacitanceUF, 1)}`,
+      emptyWindow(s) ? 'none (see below)' : s.maximumCapacitanceUF === null ? `≥ ${fixed(s.minimumCapacitanceUF, 1)}` : `${fixed(s.minimumCapacitanceUF, 1)} – ${fixed(s.maximumCapacitanceUF, 1)}`,
       fixed(s.designCapacitanceUF, 1),
       fixed(s.fixedCapacitanceUF, 1),
       fixed(s.designKvarAtAppliedV, 2),
@@ -133,11 +133,14 @@ function branchTable(sel: BankSelection, label: PhaseLabeller): string {
   return notes.length ? `${table}\n${indentLines(notes)}` : table;
 }
 
+/** A rating as written on its plate: whole amperes, or the decimals it has (a 12.5/5 A CT, not 13/5). */
+const ampsRating = (a: number): string => (Number.isInteger(a) ? String(a) : String(Number(a.toFixed(2))));
+
 function controllerLines(c: ControllerSettings): string[] {
   const band = `PF ≥ ${boundFigure(c.targetBand.minPf)} lagging${c.targetBand.maxPf === null ? (c.targetBand.leadingAllowed ? ', leading allowed' : ' up to 1.000') : ` up to ${fixed(c.targetBand.maxPf, 3)} lagging`}`;
   return [
-    `outputs: ${c.outputsUsed} of ${c.outputs} used · ${c.measurement === 'one-line' ? 'equal steps: an ordinary controller reading one CT' : 'steps serve single lines: the controller must measure every line (one CT per line)'}`,
-    `CT ${fixed(c.ctPrimaryA, 0)}/${fixed(c.ctSecondaryA, 0)} A${c.ctChosen ? ' (chosen: next standard rating above 1.25 × the largest line current; give controller.ctPrimaryA if yours differs)' : ''}`,
+    `outputs: ${c.outputsUsed} of ${c.outputs} used · ${c.measurement === 'one-line' ? 'balanced steps: an ordinary controller reading one CT' : 'steps serve single lines: the controller must measure every line (one CT per line)'}`,
+    `CT ${ampsRating(c.ctPrimaryA)}/${ampsRating(c.ctSecondaryA)} A${c.ctChosen ? ' (chosen: next standard rating above 1.25 × the largest line current; give controller.ctPrimaryA if yours differs)' : ''}`,
     `C/k of the smallest step (${fixed(c.smallestStepKvar, 2)} kvar at nominal voltage) = ${fixed(c.responseThresholdA, 3)} A; set ${fixed(c.responseSettingA, 3)} A (${c.settingFraction} × C/k)`,
     `target band ${band} · switching delay ${c.switchingDelayS} s · a step waits ${c.reconnectionDelayS} s before it is switched on again (discharge time ${c.dischargeTimeS} s)`,
   ];
