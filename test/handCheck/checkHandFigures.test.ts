@@ -175,6 +175,9 @@ describe('bad hand figures', () => {
     ['an expected line the board lacks', split, { capacitors: [{ branch: 'A-B', kvar: 5 }], expected: { lines: { C: { currentA: 3 } } } }, 'not-on-board', 'expected.lines.C'],
     ['an unknown key', threeWire, { capacitors: [{ branch: 'A-B', kvar: 5 }], colour: 'red' }, 'unknown_key', 'colour'],
     ['a negative kvar', threeWire, { capacitors: [{ branch: 'A-B', kvar: -5 }] }, 'out_of_range', 'capacitors[0].kvar'],
+    // A gigavar printed 2.5 GA line currents: the physical ranges the board file has hold here too.
+    ['a capacitor of 1e9 kvar', threeWire, { capacitors: [{ branch: 'A-B', kvar: 1e9 }] }, 'out_of_range', 'capacitors[0].kvar'],
+    ['a capacitance of 1e12 µF', threeWire, { capacitors: [{ branch: 'A-B', uF: 1e12 }] }, 'out_of_range', 'capacitors[0].uF'],
   ])('%s', (_what, b, figures, code, path) => {
     try {
       checkHandFigures(b, figures);

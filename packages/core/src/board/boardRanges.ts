@@ -40,6 +40,9 @@ export const PHYSICAL_RANGES = {
   /** Below 0.01 a load is a reactance: give kW and kvar. */
   pf: { min: 0.01, max: 1, unit: '' },
   loadOhms: { min: 0, max: 1e7, unit: 'ohm' },
+  /** Capacitors a user brings to trivar check: as far as the loads go (100,000 kvar is some 6 F at 230 V, 50 Hz). */
+  capacitorKvar: { min: 0, max: 100_000, unit: 'kvar', above: true },
+  capacitorUF: { min: 0, max: 1e7, unit: 'µF', above: true },
   loadReactanceOhms: { min: -1e7, max: 1e7, unit: 'ohm' },
 } as const satisfies Record<string, PhysicalRange>;
 

@@ -43,7 +43,7 @@ const nonNegative = z.number().nonnegative();
  * The ranges only keep out nonsense (1e308 kW, a 1e-320 power factor) that would end in overflow
  * or a misleading "singular network"; they are wide on purpose. See PHYSICAL_RANGES.
  */
-function within(range: PhysicalRange): z.ZodNumber {
+export function within(range: PhysicalRange): z.ZodNumber {
   const { min, max, unit, above } = range;
   const text = `a number ${above ? 'above' : 'from'} ${groupDigits(min)} ${above ? 'and at most' : 'to'} ${groupDigits(max)}${unit ? ` ${unit}` : ''}`;
   return (above ? z.number().gt(min, { message: text }) : z.number().min(min, { message: text })).max(max, { message: text });

@@ -4,24 +4,24 @@
  * and currents they expect, and the target their sizing aimed at.
  */
 import * as z from 'zod';
+import { within } from '../board/boardSchema.js';
+import { PHYSICAL_RANGES } from '../board/boardRanges.js';
 
 export const HAND_BRANCHES = ['A-N', 'B-N', 'C-N', 'A-B', 'B-C', 'C-A'] as const;
 export type HandBranch = (typeof HAND_BRANCHES)[number];
 
-const positive = z.number().positive();
-
 export const handCapacitorSchema = z
   .strictObject({
     branch: z.enum(HAND_BRANCHES).describe('where the capacitor connects: a phase to neutral (A-N…) or a line pair (A-B…)'),
-    kvar: positive.optional().describe('nameplate output, kvar (at ratedV)'),
-    uF: positive.optional().describe('capacitance, µF'),
-    ratedV: positive.optional().describe('voltage the kvar rating is stated at, V; default the nominal voltage across the branch'),
+    kvar: within(PHYSICAL_RANGES.capacitorKvar).optional().describe('nameplate output, kvar (at ratedV)'),
+    uF: within(PHYSICAL_RANGES.capacitorUF).optional().describe('capacitance, µF'),
+    ratedV: within(PHYSICAL_RANGES.voltage).optional().describe('voltage the kvar rating is stated at, V; default the nominal voltage across the branch'),
   })
-  .refine((c) => (c.kvar === undefined) !== (c.uF === undefined), { message: 'give either kvar or uF' })
-  .refine((c) => c.ratedV === undefined || c.kvar !== undefined, { message: 'ratedV goes with a kvar rating', path: ['ratedV'] });
+  .refine((c) => (c.kvar === undefined) !== (c.uF === undefined), { message: 'either kvar or uF (one of them, not both)' })
+  .refine((c) => c.ratedV === undefined || c.kvar !== undefined, { message: 'ratedV only beside a kvar rating (a capacitance in uF needs none)', path: ['ratedV'] });
 
 const expectedLineSchema = z.strictObject({
-  currentA: positive.optional().describe('line current you expect after the capacitors, A'),
+  currentA: within(PHYSICAL_RANGES.loadA).optional().describe('line current you expect after the capacitors, A'),
   pf: z.number().gt(0).max(1).optional().describe('power factor you expect on this line'),
 });
 
@@ -34,7 +34,7 @@ export const handFiguresSchema = z
     expected: z
       .strictObject({
         lines: z.strictObject({ A: expectedLineSchema.optional(), B: expectedLineSchema.optional(), C: expectedLineSchema.optional() }).optional(),
-        neutralA: z.number().nonnegative().optional().describe('neutral current you expect, A'),
+        neutralA: z.number().nonnegative().max(PHYSICAL_RANGES.loadA.max).optional().describe('neutral current you expect, A'),
         pf: z.number().gt(0).max(1).optional().describe('board power factor you expect (vector: ΣP/|ΣS|)'),
       })
       .optional()
