@@ -91,6 +91,27 @@ describe('interval-data cells', () => {
     expect(issues[4]!.message).toMatch(/empty cell is not read as zero/);
   });
 
+  it('a figure that would overflow the solve is refused at its cell (1e308 kW ended in "non-finite voltages" at an interval number)', () => {
+    const issues = issuesOf(() =>
+      read(
+        ['time', 'kiln [kW]', 'kiln [pf]', 'lamp [x]'],
+        [
+          ['2025-05-01 00:00', '1.2', '0.9', '1'],
+          ['2025-05-01 00:01', '1e308', '0.9', '1'],
+          ['2025-05-01 00:02', '-2e6', '0.9', '5000'],
+          ['2025-05-01 00:03', '1e6', '0.9', '1000'],
+        ],
+      ),
+    );
+    expect(issues.map((i) => [i.code, i.path])).toEqual([
+      ['bad_value', 'row 3, column 2 ("kiln [kW]")'],
+      ['bad_value', 'row 4, column 2 ("kiln [kW]")'],
+      ['bad_value', 'row 4, column 4 ("lamp [x]")'],
+    ]);
+    expect(issues[0]!.message).toContain('at most 1,000,000 in size for [kW]');
+    expect(issues[2]!.message).toContain('at most 1,000 in size for [x]');
+  });
+
   it('reads kW + pf with a negative pf as leading, and A + pf at the nominal phase voltage', () => {
     const { plan, raw } = read(['time', 'kiln [kW]', 'kiln [pf]', 'lamp [A]', 'lamp [pf]'], [['2025-05-01T00:00Z', '3', '-0.8', '10', '0.6']]);
     const cols = driverColumns(plan, raw.values, raw.count);

@@ -47,10 +47,19 @@ function fail(issues: InputIssue[]): never {
 /** The quantity of a data header ("oven [kW]" → "kW"). */
 const quantityOf = (header: string) => /\[\s*([A-Za-z]+)\s*\]$/.exec(header)?.[1] ?? '';
 
+/**
+ * Largest magnitude a cell of each quantity may hold: ten times a board file's largest load (a column
+ * may drive a group or a whole phase), a multiplier of the loads' ratings up to 1,000. They only keep
+ * out figures (1e308 kW) that would end in overflow far from the cell that caused it.
+ */
+const LARGEST: Readonly<Record<string, number>> = { kW: 1e6, kvar: 1e6, kVA: 1e6, A: 1e6, x: 1000 };
+
 /** Range a quantity's value must fall in, and how to say it. */
 function checkValue(q: string, x: number): string | null {
   if (q === 'pf' && !(x !== 0 && Math.abs(x) <= 1)) return 'a power factor with 0 < |pf| <= 1 (negative = leading)';
   if ((q === 'A' || q === 'x') && x < 0) return `a number >= 0 for [${q}]`;
+  const largest = LARGEST[q];
+  if (largest !== undefined && Math.abs(x) > largest) return `a number of at most ${largest.toLocaleString('en-US')} in size for [${q}]`;
   return null;
 }
 
