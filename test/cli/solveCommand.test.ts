@@ -36,6 +36,21 @@ describe('trivar solve (built binary)', () => {
     expect(welder.replace(/\s+/g, ' ')).toMatch(note);
   });
 
+  it('a line whose vars print as 0.00 and PF as 1.000 gets no lead or lag tag (noise), one with vars does', () => {
+    const head = 'supply: { system: three-phase-4wire, voltage: { lineToLine: 400 }, frequencyHz: 50 }\nloads:\n';
+    const loads = [
+      '  - { name: heater A, connection: A-N, kW: 10, pf: 1 }',
+      '  - { name: indicator lamp, connection: A-N, kW: 0.001, pf: 0.5, sense: leading }',
+      '  - { name: motor B, connection: B-N, kW: 3, pf: 0.8 }',
+      '',
+    ].join('\n');
+    const rows = runTrivar(['solve', '-'], head + loads).stdout.split('\n');
+    const lineA = rows.find((l) => /^\s+A\s/.test(l))!;
+    expect(lineA).toMatch(/0\.00\s+1\.000(\s|$)/);
+    expect(lineA).not.toMatch(/1\.000 (lead|lag)/);
+    expect(rows.find((l) => /^\s+B\s/.test(l))!).toMatch(/0\.800 lag/);
+  });
+
   it('--json prints exactly the library result', () => {
     const r = runTrivar(['solve', 'examples/corner-bakery.yaml', '--json']);
     expect(r.code).toBe(0);

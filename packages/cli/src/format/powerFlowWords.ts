@@ -10,10 +10,12 @@ import { fixed } from './textTable.js';
 /** True when the power, as printed to 2 decimals, flows back toward the supply. */
 export const isExport = (kW: number): boolean => fixed(kW, 2).startsWith('-');
 
-export function pfCell(r: Pick<PowerReading, 'pf' | 'sense' | 'kVA' | 'kW'>): string {
+export function pfCell(r: Pick<PowerReading, 'pf' | 'sense' | 'kVA' | 'kW' | 'kvar'>): string {
   if (r.pf === null || fixed(r.kVA, 2) === '0.00') return '-';
   if (isExport(r.kW)) return `${fixed(r.pf, 3)} export`;
-  const sense = r.sense === 'lagging' ? ' lag' : r.sense === 'leading' ? ' lead' : '';
+  // A sense beside vars that print as 0.00 (a 1 W lamp on a 10 kW phase) is noise: the PF reads 1.000 alone.
+  const noVars = Number(fixed(Math.abs(r.kvar), 2)) === 0 && fixed(r.pf, 3) === '1.000';
+  const sense = noVars ? '' : r.sense === 'lagging' ? ' lag' : r.sense === 'leading' ? ' lead' : '';
   return `${fixed(r.pf, 3)}${sense}`;
 }
 
