@@ -34,6 +34,23 @@ describe('runCli in-process', () => {
     expect(await runCli(['solve', 'b.yaml'], f.io)).toBe(3);
     expect(f.err()).toContain('supply.frequencyHz');
   });
+  it('numbers as people write them: hex, binary or a figure named twice in --aim are refused (2), .95 and 1e0 are read', async () => {
+    for (const args of [
+      ['correct', 'b.yaml', '--pf', '0x1'],
+      ['correct', 'b.yaml', '--pf', '0b1'],
+      ['rebalance', 'b.yaml', '--aim', 'neutral=1,neutral=2'],
+      ['rebalance', 'b.yaml', '--aim', 'neutral=0x2'],
+    ]) {
+      const f = fakeIo({ 'b.yaml': bakery });
+      expect(await runCli(args, f.io), args.join(' ')).toBe(2);
+      expect(f.err()).toMatch(/is invalid/);
+    }
+    for (const pf of ['.95', '9.5e-1']) {
+      const f = fakeIo({ 'b.yaml': bakery });
+      expect(await runCli(['correct', 'b.yaml', '--arrangement', 'star-bank', '--pf', pf], f.io)).not.toBe(2);
+      expect(f.out()).toContain('PF ≥ 0.950');
+    }
+  });
   it('an unknown option returns 2', async () => {
     const f = fakeIo({});
     expect(await runCli(['solve', 'x', '--colour'], f.io)).toBe(2);

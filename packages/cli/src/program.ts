@@ -97,6 +97,9 @@ Examples:
 
 Exit codes: as for solve`;
 
+/** A decimal number as people write one (12, -0.5, .95, 1e3); not hex, binary or octal, which Number() also reads. */
+const DECIMAL = /^\s*[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?\s*$/;
+
 const AIM_NAMES: Record<string, string> = {
   'largest-line': 'largestLine',
   neutral: 'neutral',
@@ -110,9 +113,10 @@ function parseAim(text: string): Record<string, number> {
   for (const part of text.split(',')) {
     const [name = '', weight] = part.split('=').map((s) => s.trim());
     const key = AIM_NAMES[name];
-    const w = weight === undefined ? 1 : Number(weight);
+    const w = weight === undefined ? 1 : DECIMAL.test(weight) ? Number(weight) : Number.NaN;
     if (!key || !Number.isFinite(w) || w < 0)
       throw new InvalidArgumentError(`expected figures from ${Object.keys(AIM_NAMES).join(', ')}, each optionally =weight (a number >= 0), separated by commas.`);
+    if (key in aim) throw new InvalidArgumentError(`${name} is named twice; give each figure once, with its weight.`);
     aim[key] = w;
   }
   return aim;
@@ -121,7 +125,7 @@ function parseAim(text: string): Record<string, number> {
 /** Any number: the study's schema checks the range and names the field. */
 function anyNumber(text: string): number {
   const x = Number(text);
-  if (text.trim() === '' || !Number.isFinite(x)) throw new InvalidArgumentError('expected a number.');
+  if (!DECIMAL.test(text) || !Number.isFinite(x)) throw new InvalidArgumentError('expected a number.');
   return x;
 }
 
@@ -162,7 +166,7 @@ Examples:
 
 function numberIn(min: number, max: number, what: string) {
   return (text: string): number => {
-    const x = Number(text);
+    const x = DECIMAL.test(text) ? Number(text) : Number.NaN;
     if (!Number.isFinite(x) || x <= min || x > max) throw new InvalidArgumentError(`expected ${what}.`);
     return x;
   };

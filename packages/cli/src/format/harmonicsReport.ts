@@ -61,7 +61,7 @@ function largestOrder(d: DistortionReading): string {
 
 export function neutralLines(n: NeutralCheck): string[] {
   const lines = [
-    prose(`${fixed(n.current.rms, 1)} A rms, of which ${fixed(n.current.fundamental, 1)} A at the fundamental; ${n.ratioToPhase === null ? '' : `${fixed(n.ratioToPhase, 2)} × the largest line current; `}triplen orders ${n.triplenSharePercent === null ? '-' : fixed(n.triplenSharePercent, 0)} % of its heating (rms²)`),
+    prose(`${fixed(n.current.rms, 1)} A rms, of which ${fixed(n.current.fundamental, 1)} A at the fundamental; ${n.ratioToPhase === null ? '' : `${fixed(n.ratioToPhase, 2)} × the largest line current; `}${n.triplenSharePercent === null ? 'no current to heat it' : `triplen orders ${fixed(n.triplenSharePercent, 0)} % of its heating (rms²)`}`),
   ];
   if (n.ratingA !== null) lines.push(`  rating ${fixed(n.ratingA, 0)} A: ${fixed(n.loadingPercent ?? 0, 0)} % loaded${n.overloaded ? ' — OVERLOADED' : ''}`);
   else lines.push('  no neutral rating in the board file (feeder.neutral.ratingA): not checked');

@@ -19,9 +19,9 @@ export function dataLines(r: Pick<ProfileResult, 'sequence' | 'intervals' | 'tim
         }`
       : 'no gaps';
     lines.push(gaps);
-    if (s.duplicates.count) lines.push(`${s.duplicates.count} repeated time${s.duplicates.count === 1 ? '' : 's'}: the first reading kept (rows ${s.duplicates.rows.join(', ')}${s.duplicates.count > s.duplicates.rows.length ? ', ...' : ''})`);
+    if (s.duplicates.count) lines.push(`${s.duplicates.count} repeated time${s.duplicates.count === 1 ? '' : 's'}: the first reading kept (row${s.duplicates.rows.length === 1 ? '' : 's'} ${s.duplicates.rows.join(', ')}${s.duplicates.count > s.duplicates.rows.length ? ', ...' : ''})`);
     if (s.ambiguousTimes) lines.push(`${s.ambiguousTimes} wall-clock times fall in the repeated hour when clocks go back: placed in row order`);
-    if (s.irregularSteps) lines.push(`${s.irregularSteps} steps between rows are not a whole number of intervals`);
+    if (s.irregularSteps) lines.push(s.irregularSteps === 1 ? 'one step between rows is not a whole number of intervals' : `${s.irregularSteps} steps between rows are not a whole number of intervals`);
   }
   if (r.undriven && r.undriven.loads.length)
     lines.push(`${r.undriven.loads.length} board load${r.undriven.loads.length === 1 ? '' : 's'} with no column (${r.undriven.loads.slice(0, 4).join(', ')}${r.undriven.loads.length > 4 ? ', ...' : ''}): ${r.undriven.atRating ? 'held at rating' : 'taken as off (--unlisted-at-rating keeps them on)'}`);
