@@ -145,6 +145,17 @@ describe('trivar rebalance (built binary)', () => {
     expect(refused(['examples/pine-hollow-cabin.yaml', '--aim', 'current-unbalance'])).toContain('--aim: expected unbalance figures only on a three-phase board');
   });
 
+  it('options that choose among an installation\'s boards are refused on a board file (they were silently ignored)', () => {
+    for (const args of [
+      ['--measure-at', 'main'],
+      ['--boards', 'main'],
+    ]) {
+      const r = runTrivar(['rebalance', flats, ...args]);
+      expect(r.code, args.join(' ')).toBe(2);
+      expect(r.stderr).toContain(`${args[0]} chooses among an installation's boards`);
+    }
+  });
+
   it('refuses to write over its input', () => {
     const r = runTrivar(['rebalance', flats, '--write', flats]);
     expect(r.code).toBe(2);

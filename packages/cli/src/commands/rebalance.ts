@@ -94,6 +94,13 @@ export async function runRebalance(file: string, options: RebalanceCommandOption
         report = rebalanceInstallation(picked.installation, rest, { ...search, loadConditions: picked.conditions });
       } else report = rebalanceInstallation(installation, study, search);
     } else {
+      // A board file is one board: options that choose among an installation's boards have nothing to choose.
+      for (const [flag, given] of [
+        ['--boards', options.boards],
+        ['--measure-at', options.measureAt],
+      ] as const)
+        if (given !== undefined)
+          throw new UsageError(`${flag} chooses among an installation's boards; ${file === '-' ? 'this' : `"${file}"`} is a board file (one board, measured where it is): leave out ${flag}`);
       const spec = parseBoard(input);
       fileSection = spec.rebalance as Record<string, unknown> | undefined;
       assertRebalanceOptionsFit(fileSection, options);
