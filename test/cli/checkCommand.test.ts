@@ -9,6 +9,12 @@ const BOARD = 'examples/riverside-cold-store.yaml';
 const FIGURES = 'examples/hand-figures/riverside-cold-store.yaml';
 
 describe('trivar check', () => {
+  it('both inputs from standard input is a usage error (exit 2), not an empty board', () => {
+    const r = runTrivar(['check', '-', '-'], 'capacitors: [{ branch: A-B, kvar: 5 }]\n');
+    expect(r.code).toBe(2);
+    expect(r.stderr).toContain('cannot both come from standard input');
+  });
+
   it('shows the textbook working, hand vs solved line by line, and the effects', () => {
     const r = runTrivar(['check', BOARD, FIGURES]);
     expect(r.stderr).toBe('');

@@ -24,6 +24,7 @@ export async function readFigures(path: string, io: CliIo): Promise<string> {
 }
 
 export async function runCheck(boardFile: string, figuresFile: string, options: CheckCommandOptions, io: CliIo): Promise<HandCheckResult> {
+  if (boardFile === '-' && figuresFile === '-') throw new UsageError('the board and the hand figures cannot both come from standard input (-): give at least one of them as a file');
   const raw = readBoardText(await io.readSource(boardFile));
   if (isInstallationInput(raw)) throw new UsageError(`${boardFile}: ${HAND_FIGURES_ON_INSTALLATION}`, EXIT.input);
   const spec = parseBoard(raw);
