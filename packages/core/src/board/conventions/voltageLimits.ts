@@ -22,7 +22,7 @@ export const VOLTAGE_LIMIT_PRESETS = {
     underPercent: 10,
     overPercent: 10,
     source:
-      'EN 50160, LV public supply: 230 V ±10 % for 95 % of the 10-minute means of a week (confirmed secondary: an EN 50160:2010 meter technical note); here applied to every solved voltage',
+      'EN 50160, LV public supply: ±10 % of the nominal 230 V for 95 % of the 10-minute means of a week (confirmed secondary: an EN 50160:2010 meter technical note); here ±10 % of the board’s own nominal voltage, applied to every solved voltage',
   },
   'c84-service-a': {
     underPercent: 5,
@@ -38,7 +38,7 @@ export const VOLTAGE_LIMIT_PRESETS = {
     underPercent: 6,
     overPercent: 10,
     source:
-      'UK supply: 230 V +10 %/−6 % (confirmed: the Electricity Supply (Amendment) (No. 2) Regulations 1994 summary; carried into the Electricity Safety, Quality and Continuity Regulations 2002 — from memory)',
+      'UK supply: +10 %/−6 % of the nominal 230 V (confirmed: the Electricity Supply (Amendment) (No. 2) Regulations 1994 summary; carried into the Electricity Safety, Quality and Continuity Regulations 2002 — from memory); here of the board’s own nominal voltage',
   },
 } as const satisfies Record<string, VoltageLimitPreset>;
 
