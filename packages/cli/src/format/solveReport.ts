@@ -50,6 +50,9 @@ export function headerLines(r: BoardResult): string[] {
   ];
 }
 
+/** A current's angle, where the current prints as more than 0.0 A (a round-off current's angle is noise). */
+const currentAngle = (i: { magnitude: number; angleDeg: number }) => (fixed(i.magnitude, 1) === '0.0' ? '' : fixed(i.angleDeg, 1));
+
 function phaseTable(r: BoardResult): string {
   const label = labeller(r);
   const rows = r.phases.map((p) => [
@@ -59,7 +62,7 @@ function phaseTable(r: BoardResult): string {
     fixed(p.voltagePercent, 1),
     fixed(p.voltageDropPercent, 1),
     fixed(p.current.magnitude, 1),
-    fixed(p.current.angleDeg, 1),
+    currentAngle(p.current),
     fixed(p.kW, 2),
     fixed(p.kvar, 2),
     pfCell(p),
@@ -75,7 +78,7 @@ function phaseTable(r: BoardResult): string {
       '',
       '',
       fixed(r.neutral.current.magnitude, 1),
-      r.neutral.current.magnitude > 0 ? fixed(r.neutral.current.angleDeg, 1) : '',
+      currentAngle(r.neutral.current),
       '',
       '',
       '',
