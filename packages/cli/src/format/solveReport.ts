@@ -212,9 +212,9 @@ function powerFactorBlock(r: BoardResult): string {
   ];
   if (pf.effective) rows.push(['effective  3·Ve·Ie (IEEE 1459)', fixed(pf.effective.kVA, 2), fixed(pf.effective.pf, 3)]);
   if (pf.positiveSequence) rows.push(['positive sequence  3·V1·I1', fixed(pf.positiveSequence.kVA, 2), fixed(pf.positiveSequence.pf, 3)]);
-  let out = renderTable([{ header: 'definition', align: 'left' }, { header: 'kVA' }, { header: 'PF' }], rows);
-  if (pf.unbalancedKVA !== null) out += `\n  fundamental unbalanced power S_U1 ${fixed(pf.unbalancedKVA, 2)} kVA`;
-  return out;
+  // S_U1 is an apparent power with no power factor of its own: a row of the table, its PF cell empty.
+  if (pf.unbalancedKVA !== null) rows.push(['unbalanced  S_U1 (IEEE 1459)', fixed(pf.unbalancedKVA, 2), '']);
+  return renderTable([{ header: 'definition', align: 'left' }, { header: 'kVA' }, { header: 'PF' }], rows);
 }
 
 function powerBlock(r: BoardResult): string {
