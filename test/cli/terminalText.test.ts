@@ -55,3 +55,18 @@ describe('control characters in names', () => {
     expect(escapeControlCharacters('Café ∠V° µF Ω — ok')).toBe('Café ∠V° µF Ω — ok');
   });
 });
+
+describe('table columns on a terminal', () => {
+  it('count East Asian wide characters twice and combining marks not at all, so columns line up', async () => {
+    const { renderTable, textWidth } = await import('../../packages/cli/src/format/textTable.js');
+    expect(textWidth('電気')).toBe(4);
+    expect(textWidth('e\u0301')).toBe(1); // e + combining acute
+    expect(textWidth('∠ · Ü ☃')).toBe(7);
+    const table = renderTable([{ header: 'circuit', align: 'left' }, { header: 'A' }], [['電気 oven', '4.3'], ['lamp', '0.1']]);
+    const [head, rule, wide, narrow] = table.split('\n');
+    // Every line puts the number column at the same terminal column.
+    expect(textWidth(wide!)).toBe(textWidth(narrow!));
+    expect(textWidth(rule!)).toBe(textWidth(wide!));
+    expect(textWidth(head!)).toBeLessThanOrEqual(textWidth(wide!));
+  });
+});

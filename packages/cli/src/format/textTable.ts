@@ -7,19 +7,49 @@ export interface Column {
 }
 
 export function renderTable(columns: readonly Column[], rows: readonly (readonly string[])[], indent = '  '): string {
-  const widths = columns.map((c, k) => Math.max(c.header.length, ...rows.map((r) => (r[k] ?? '').length)));
+  const widths = columns.map((c, k) => Math.max(textWidth(c.header), ...rows.map((r) => textWidth(r[k] ?? ''))));
+  const pad = (cell: string, k: number) => ' '.repeat(Math.max(0, widths[k]! - textWidth(cell)));
   const line = (cells: readonly string[]) =>
     indent +
     cells
-      .map((cell, k) => (columns[k]?.align === 'left' ? cell.padEnd(widths[k]!) : cell.padStart(widths[k]!)))
+      .map((cell, k) => (columns[k]?.align === 'left' ? cell + pad(cell, k) : pad(cell, k) + cell))
       .join('  ')
       .trimEnd();
   const rule = indent + widths.map((w) => '-'.repeat(w)).join('  ');
   return [line(columns.map((c) => c.header)), rule, ...rows.map(line)].join('\n');
 }
 
-/** Characters as a reader counts them (code points, so ∠ and · count once). */
-export const textWidth = (text: string): number => [...text].length;
+/**
+ * Terminal columns one character takes: none for a combining mark or a zero-width joiner/selector, two
+ * for East Asian wide and fullwidth forms and the common emoji blocks (Unicode UAX #11's W and F
+ * ranges, in the blocks that matter for names), one otherwise. Written here rather than taken from a
+ * package (string-width): a few ranges, and no module to load before every command's first line.
+ */
+function charWidth(cp: number): number {
+  if ((cp >= 0x300 && cp <= 0x36f) || (cp >= 0x200b && cp <= 0x200f) || (cp >= 0xfe00 && cp <= 0xfe0f)) return 0;
+  if (
+    (cp >= 0x1100 && cp <= 0x115f) ||
+    (cp >= 0x2e80 && cp <= 0x303e) ||
+    (cp >= 0x3041 && cp <= 0xa4cf) ||
+    (cp >= 0xac00 && cp <= 0xd7a3) ||
+    (cp >= 0xf900 && cp <= 0xfaff) ||
+    (cp >= 0xfe30 && cp <= 0xfe4f) ||
+    (cp >= 0xff00 && cp <= 0xff60) ||
+    (cp >= 0xffe0 && cp <= 0xffe6) ||
+    (cp >= 0x1f300 && cp <= 0x1f64f) ||
+    (cp >= 0x1f900 && cp <= 0x1f9ff) ||
+    (cp >= 0x20000 && cp <= 0x3fffd)
+  )
+    return 2;
+  return 1;
+}
+
+/** Columns a text takes on a terminal (∠ and · count once, 電 twice, a combining accent not at all). */
+export function textWidth(text: string): number {
+  let width = 0;
+  for (const ch of text) width += charWidth(ch.codePointAt(0)!);
+  return width;
+}
 
 /**
  * `renderTable`, fitted to `width`: when it is wider, a cell of the text column
