@@ -60,7 +60,7 @@ describe('trivar rebalance (built binary)', () => {
     const out = join(dir, 'riser-moved.yaml');
     const shown = runTrivar(['rebalance', input, '--move-limit', '4', '--no-table']);
     expect(shown.code).toBe(0);
-    expect(shown.stdout).toMatch(/board\s+no\.\s+circuit\s+now on\s+move to/);
+    expect(shown.stdout).toMatch(/board\s+list no\.\s+circuit\s+now on\s+move to/);
     expect(shown.stdout).toContain('Before and after: incomer currents (A) and unbalance (%), installation re-solved');
     const r = runTrivar(['rebalance', input, '--move-limit', '4', '--no-table', '--json', '--write', out]);
     expect(r.code).toBe(0);

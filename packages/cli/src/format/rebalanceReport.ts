@@ -51,14 +51,20 @@ function workOrder(r: RebalanceReport): string {
   if (r.moves.length === 0) return '  (no moves)';
   // The work order speaks the file's naming (L1-N where the file wrote L1-N).
   const on = (c: string) => labelIn(r.board.phaseNames ?? 'A/B/C', c);
+  // The number is the circuit's place in its board's loads list, not an order to make the moves in.
+  const legend = '\n  (list no.: the circuit’s place in its board’s loads list, from 1; the moves may be made in any order)';
   if (isInstallation(r))
-    return renderTableWithin(
-      [{ header: 'board', align: 'left' }, { header: 'no.' }, { header: 'circuit', align: 'left' }, { header: 'now on', align: 'left' }, { header: 'move to', align: 'left' }],
-      r.moves.map((m) => [m.board, String(m.circuit), m.name, on(m.from), on(m.to)]),
+    return (
+      renderTableWithin(
+        [{ header: 'board', align: 'left' }, { header: 'list no.' }, { header: 'circuit', align: 'left' }, { header: 'now on', align: 'left' }, { header: 'move to', align: 'left' }],
+        r.moves.map((m) => [m.board, String(m.circuit), m.name, on(m.from), on(m.to)]),
+      ) + legend
     );
-  return renderTable(
-    [{ header: 'no.' }, { header: 'circuit', align: 'left' }, { header: 'now on', align: 'left' }, { header: 'move to', align: 'left' }],
-    r.moves.map((m) => [String(m.circuit), m.name, on(m.from), on(m.to)]),
+  return (
+    renderTable(
+      [{ header: 'list no.' }, { header: 'circuit', align: 'left' }, { header: 'now on', align: 'left' }, { header: 'move to', align: 'left' }],
+      r.moves.map((m) => [String(m.circuit), m.name, on(m.from), on(m.to)]),
+    ) + legend
   );
 }
 
