@@ -1,6 +1,6 @@
 /** `trivar report` and `trivar diagram` run as a user would (built binary). */
 import { execFileSync } from 'node:child_process';
-import { copyFileSync, linkSync, mkdtempSync, readFileSync, readdirSync, writeFileSync } from 'node:fs';
+import { copyFileSync, existsSync, linkSync, mkdtempSync, readFileSync, readdirSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { dirname, join } from 'node:path';
 import { describe, expect, it } from 'vitest';
@@ -294,6 +294,12 @@ describe('trivar report', () => {
       expect(r.code).toBe(2);
       expect(r.stderr).toContain(why);
       expect(r.stderr).not.toMatch(/internal error|\bat \S+ \(/);
+    }
+    // A device that fails while writing (a full disk) is exit 6, as the other outputs' failures are.
+    if (existsSync('/dev/full')) {
+      const full = runTrivar(['report', board, '-o', '/dev/full']);
+      expect(full.code).toBe(6);
+      expect(full.stderr).toContain('no space left on the device');
     }
     // Two outputs of one command on one file: the second would silently replace the first.
     const data = join(ROOT, 'examples/osier-mill-day.csv');

@@ -2,6 +2,7 @@
 import { existsSync, mkdirSync, realpathSync, statSync, writeFileSync } from 'node:fs';
 import { dirname, resolve } from 'node:path';
 import { EXIT, UsageError } from './exitCodes.js';
+import { fileErrorWords } from './fileErrorWords.js';
 
 /** The path as it will be written: symlinks resolved where the file or its folder exists. */
 function canonical(path: string): string {
@@ -41,8 +42,10 @@ export function writeOutputFile(path: string, content: string): void {
     writeFileSync(path, content, 'utf8');
   } catch (e) {
     const code = (e as NodeJS.ErrnoException).code;
-    const why = code === 'ENOENT' ? 'its folder does not exist' : code === 'EISDIR' ? 'it is a directory' : code === 'EACCES' ? 'permission denied' : (code ?? 'unwritable');
-    throw new UsageError(`cannot write "${path}": ${why}`, EXIT.usage);
+    const why = code === 'ENOENT' ? 'its folder does not exist' : code === 'EISDIR' ? 'it is a directory' : code === 'EACCES' ? 'permission denied' : fileErrorWords(e);
+    // A place that cannot take a file is the command line's mistake (2); a device that fails while writing is not (6).
+    const device = code === 'ENOSPC' || code === 'EDQUOT' || code === 'EFBIG' || code === 'EIO' || code === 'EROFS';
+    throw new UsageError(`cannot write "${path}": ${why}`, device ? EXIT.output : EXIT.usage);
   }
 }
 
