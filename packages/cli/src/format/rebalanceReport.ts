@@ -52,7 +52,7 @@ function workOrder(r: RebalanceReport): string {
   // The work order speaks the file's naming (L1-N where the file wrote L1-N).
   const on = (c: string) => labelIn(r.board.phaseNames ?? 'A/B/C', c);
   // The number is the circuit's place in its board's loads list, not an order to make the moves in.
-  const legend = '\n  (list no.: the circuit’s place in its board’s loads list, from 1; the moves may be made in any order)';
+  const legend = `\n${wrapText('(list no.: the circuit’s place in its board’s loads list, from 1; the moves may be made in any order)', '  ', '   ')}`;
   if (isInstallation(r))
     return (
       renderTableWithin(
