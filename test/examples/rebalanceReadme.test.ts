@@ -19,7 +19,7 @@ describe('README: rebalancing', () => {
   it('output block matches `trivar rebalance examples/maple-court-riser.yaml --move-limit 4` (an installation work order)', () => {
     const block = readme.split('<!-- rebalance-installation-output:start -->')[1]!.split('<!-- rebalance-installation-output:end -->')[0]!;
     const shown = block.replace(/^\s*```text\n/, '').replace(/```\s*$/, '');
-    expect(shown).toMatch(/board\s+no\.\s+circuit\s+now on\s+move to/);
+    expect(shown).toMatch(/board\s+list no\.\s+circuit\s+now on\s+move to/);
     expect(shown.trimEnd()).toBe(runTrivar(['rebalance', 'examples/maple-court-riser.yaml', '--move-limit', '4']).stdout.trimEnd());
   });
 
