@@ -7,8 +7,12 @@ export interface Column {
 }
 
 export function renderTable(columns: readonly Column[], rows: readonly (readonly string[])[], indent = '  '): string {
-  const widths = columns.map((c, k) => Math.max(textWidth(c.header), ...rows.map((r) => textWidth(r[k] ?? ''))));
-  const pad = (cell: string, k: number) => ' '.repeat(Math.max(0, widths[k]! - textWidth(cell)));
+  // One native test over the whole table: Latin text pads by its length (the usual case, and the
+  // cheap one for a 1,000-circuit report); anything wider or narrower is measured cell by cell.
+  const narrow = NARROW_ONLY.test(columns.map((c) => c.header).join('') + rows.map((r) => r.join('')).join(''));
+  const width = narrow ? (cell: string) => cell.length : textWidth;
+  const widths = columns.map((c, k) => Math.max(width(c.header), ...rows.map((r) => width(r[k] ?? ''))));
+  const pad = (cell: string, k: number) => ' '.repeat(Math.max(0, widths[k]! - width(cell)));
   const line = (cells: readonly string[]) =>
     indent +
     cells
@@ -44,8 +48,14 @@ function charWidth(cp: number): number {
   return 1;
 }
 
+/** Text of characters below the combining marks, one column each (every ASCII and Latin-1 figure and name). */
+const NARROW_ONLY = /^[\u0000-\u02ff]*$/;
+
 /** Columns a text takes on a terminal (∠ and · count once, 電 twice, a combining accent not at all). */
 export function textWidth(text: string): number {
+  // Nearly every cell is Latin text and figures: one native test instead of a loop per character (a
+  // 1,000-circuit report measures some 20,000 cells, in code that runs once).
+  if (NARROW_ONLY.test(text)) return text.length;
   let width = 0;
   for (const ch of text) width += charWidth(ch.codePointAt(0)!);
   return width;
