@@ -4,26 +4,23 @@
  * `trivar solve` has it; no column or scenario may drive a bank part; a bank studied on a board takes the
  * place of the file's bank there. Checked against the general installation solve, interval by interval.
  */
-import { readFileSync, writeFileSync } from 'node:fs';
+import { writeFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import {
   driverColumns,
-  installationInService,
-  parseInstallation,
   planDrivers,
   planInstallationColumns,
-  readBoardText,
   solveInstallationModel,
   studyInstallationProfile,
   studyInstallationScenarios,
   InputError,
-  type InstallationSpec,
 } from '@trivar/core';
 import { expectClose } from '../support/tolerance.js';
 import { runTrivar } from '../cli/runTrivar.js';
+import { ferrybankInService, ferrybankSpec } from '../support/ferrybankInService.js';
 
-const spec = parseInstallation(readBoardText(readFileSync(new URL('../../examples/ferrybank-joinery.yaml', import.meta.url), 'utf8'))) as InstallationSpec;
-const installation = installationInService(spec);
+const spec = ferrybankSpec;
+const installation = ferrybankInService;
 const fileLoads = spec.boards.flatMap((b) => b.loads.map((l) => l.name));
 
 describe('interval data with every circuit at its rating', () => {

@@ -4,25 +4,21 @@
  * solve's; nothing of a bank moves or counts as a circuit; interval data leaves a bank as rated in
  * every condition; the report says which banks were in service.
  */
-import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import {
   conditionsFromInstallationIntervals,
   driverColumns,
-  installationInService,
-  parseInstallation,
   planDrivers,
   planInstallationColumns,
-  readBoardText,
   rebalanceInstallation,
   solveInstallationModel,
-  type InstallationSpec,
 } from '@trivar/core';
 import { expectClose } from '../support/tolerance.js';
 import { runTrivar } from '../cli/runTrivar.js';
+import { ferrybankInService, ferrybankSpec } from '../support/ferrybankInService.js';
 
-const spec = parseInstallation(readBoardText(readFileSync(new URL('../../examples/ferrybank-joinery.yaml', import.meta.url), 'utf8'))) as InstallationSpec;
-const installation = installationInService(spec);
+const spec = ferrybankSpec;
+const installation = ferrybankInService;
 
 describe('rebalance with the banks the file lists in service', () => {
   const report = rebalanceInstallation(installation, {}, { moveTable: false });

@@ -22,7 +22,7 @@ import type { BankSelection, BankSizing, BuildVerdict, CompensatorSizing, Correc
 import { arrangementNames, correctionCautions, infeasibleReason, MODEL_CAUTION, meteringWarning, reportSummary, warningText } from './correctionWording.js';
 import { definedOnly } from './_internal/optionSchemas.js';
 import { assertViableBoard } from '../analysis/viableOperatingPoint.js';
-import { CORRECTION_DEFAULTS } from './correctionDefaults.js';
+import { CORRECTION_DEFAULTS, toleranceFractions } from './correctionDefaults.js';
 import { refitReactors, selectionWithResizedReactors, type RefitOutcome } from './_internal/refitReactors.js';
 import { conventionsOf } from '../board/conventions/boardConventions.js';
 import { labellerOf, type PhaseLabeller } from '../board/conventions/phaseNames.js';
@@ -31,14 +31,7 @@ import { regionWords } from '../board/conventions/regionWords.js';
 /** @param use `limitsOnly` for the light-load sizing, read only for its limits (see ResolvedBankOptions) */
 function sizeArrangement(board: Board, spec: CorrectionSpec & { arrangement: Arrangement }, use: { limitsOnly?: boolean; heldBranches?: readonly string[] } = {}): BankSizing | CompensatorSizing {
   // A bank's rounding windows hold across the tolerance its units are chosen for (selectBankUnits).
-  const tolerance = spec.capacitanceTolerance ?? {};
-  const bankUse = {
-    ...(use.limitsOnly ? { limitsOnly: true } : {}),
-    capacitanceTolerance: {
-      minus: (tolerance.minusPercent ?? CORRECTION_DEFAULTS.capacitanceTolerance.minusPercent) / 100,
-      plus: (tolerance.plusPercent ?? CORRECTION_DEFAULTS.capacitanceTolerance.plusPercent) / 100,
-    },
-  };
+  const bankUse = { ...(use.limitsOnly ? { limitsOnly: true } : {}), capacitanceTolerance: toleranceFractions(spec.capacitanceTolerance) };
   switch (spec.arrangement) {
     case 'star-bank':
       return sizeStarBank(board, definedOnly({ target: spec.target, starPoint: spec.starPoint, share: spec.share }), bankUse);

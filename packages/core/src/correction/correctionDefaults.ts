@@ -114,3 +114,11 @@ export const CORRECTION_DEFAULTS = {
    */
   convergence: 1e-8,
 } as const;
+
+/** A capacitance tolerance as given (% each way, either may be left out) → fractions, the defaults filling the gaps. */
+export function toleranceFractions(given?: { readonly minusPercent?: number | undefined; readonly plusPercent?: number | undefined }): { minus: number; plus: number } {
+  return {
+    minus: (given?.minusPercent ?? CORRECTION_DEFAULTS.capacitanceTolerance.minusPercent) / 100,
+    plus: (given?.plusPercent ?? CORRECTION_DEFAULTS.capacitanceTolerance.plusPercent) / 100,
+  };
+}

@@ -23,7 +23,7 @@
  */
 import * as z from 'zod';
 import { CONTROLLER_OUTPUTS, PRACTICES, capacitorUnitSchema, type CapacitanceToleranceSpec, type CapacitorUnitSpec, type ControllerSpec, type Practice, type TargetSpec } from './correctionSpec.js';
-import { CORRECTION_DEFAULTS } from './correctionDefaults.js';
+import { CORRECTION_DEFAULTS, toleranceFractions } from './correctionDefaults.js';
 import { TYPICAL_CATALOGUES, catalogueUnitOf, type CatalogueUnit } from './unitCatalogues.js';
 import type { EquipmentBranch, EquipmentGroup } from './equipment.js';
 import type { BankSelection, BankSizing, BankStep, BranchSelection, CorrectionWarning, SelectedUnit, SizedEquipment, UnbuildableBranches } from './correctionResult.js';
@@ -131,9 +131,7 @@ export function selectBankUnits(sized: SizedEquipment, options?: SelectBankUnits
   const label = labellerOf(opts.phaseNames ?? 'A/B/C');
   const catalogueTitle = typical ? TYPICAL_CATALOGUES[practice].title : 'catalogue given in the correction';
   const all: Usable[] = typical ? TYPICAL_CATALOGUES[practice].units.map((unit) => ({ unit, index: null })) : opts.catalogue!.map((u, index) => ({ unit: catalogueUnitOf(u, index), index }));
-  const tol = opts.capacitanceTolerance ?? {};
-  const minus = (tol.minusPercent ?? CORRECTION_DEFAULTS.capacitanceTolerance.minusPercent) / 100;
-  const plus = (tol.plusPercent ?? CORRECTION_DEFAULTS.capacitanceTolerance.plusPercent) / 100;
+  const { minus, plus } = toleranceFractions(opts.capacitanceTolerance);
   const margin = (opts.voltageMarginPercent ?? CORRECTION_DEFAULTS.voltageMarginPercent[practice]) / 100;
   const floor = (opts.deliveryFloorPercent ?? CORRECTION_DEFAULTS.deliveryFloorPercent) / 100;
   const limitV = CORRECTION_DEFAULTS.continuousVoltageLimit;

@@ -13,7 +13,7 @@ import { resolveSolveOptions } from '../network/solveOptions.js';
 import { abs, type ComplexValue } from '../complex.js';
 import { supplyPathImpedance } from '../network/installationModel.js';
 import { lightLoadSchema, targetSchema, ARRANGEMENTS, type Arrangement, type CapacitanceToleranceSpec, type LightLoadSpec, type TargetSpec } from './correctionSpec.js';
-import { CORRECTION_DEFAULTS } from './correctionDefaults.js';
+import { CORRECTION_DEFAULTS, toleranceFractions } from './correctionDefaults.js';
 import { checkTarget, lineTanBounds, resolveTarget, TARGET_SLACK } from './correctionTarget.js';
 import { addCorrectionEquipment, type EquipmentGroup } from './equipment.js';
 import { scaleBoardLoads } from './scaleBoardLoads.js';
@@ -131,8 +131,7 @@ export function verifyCorrection(board: Board, options: VerifyCorrectionOptions)
   const arrangement = opts.arrangement ?? 'star-bank';
   checkRules(definedOnly({ arrangement, target: opts.target, lightLoad: opts.lightLoad }), board, 'verifyCorrection options');
   const target = resolveTarget(opts.target, board, arrangement);
-  const minus = (opts.capacitanceTolerance?.minusPercent ?? CORRECTION_DEFAULTS.capacitanceTolerance.minusPercent) / 100;
-  const plus = (opts.capacitanceTolerance?.plusPercent ?? CORRECTION_DEFAULTS.capacitanceTolerance.plusPercent) / 100;
+  const { minus, plus } = toleranceFractions(opts.capacitanceTolerance);
   const riseLimit = opts.voltageRiseLimitPercent ?? CORRECTION_DEFAULTS.voltageRiseLimitPercent;
   const solveOptions = definedOnly(opts.solve ?? {});
   const solve = (b: Board) => analyseSolution(solveNetwork(b, solveOptions));

@@ -97,16 +97,12 @@ export class CompiledNetworkCache {
    * or a new compile.
    */
   compileForLinearSolve(installation: Installation): CompiledInstallation {
-    const layout = buildInstallationCircuit(installation);
-    const key = liveKey(layout.circuit);
-    const found = this.find(layout.circuit, key, sameLinearNetwork);
-    if (found) {
+    return this.laidOut(installation, sameLinearNetwork, (found) => {
       found.admittanceRe.fill(0);
       found.admittanceIm.fill(0);
       found.injectionRe.fill(0);
       found.injectionIm.fill(0);
-    }
-    return { installation, layout, network: found ?? this.compile(layout.circuit, key) };
+    });
   }
 
   /**
@@ -115,17 +111,22 @@ export class CompiledNetworkCache {
    * injections cleared and the circuit's branch powers written in, or a new compile.
    */
   compileForLoadFlow(installation: Installation): CompiledInstallation {
-    const layout = buildInstallationCircuit(installation);
-    const key = liveKey(layout.circuit);
-    const found = this.find(layout.circuit, key, sameLoadFlowNetwork);
-    if (found) {
+    return this.laidOut(installation, sameLoadFlowNetwork, (found, circuit) => {
       found.injectionRe.fill(0);
       found.injectionIm.fill(0);
-      layout.circuit.branches.forEach((b, k) => {
+      circuit.branches.forEach((b, k) => {
         found.powerRe[k] = b.sNominal.re;
         found.powerIm[k] = b.sNominal.im;
       });
-    }
+    });
+  }
+
+  /** The installation's circuit with a kept network `same` accepts, made ready by `reset`, or a new compile. */
+  private laidOut(installation: Installation, same: (a: Circuit, b: Circuit) => boolean, reset: (found: CompiledNetwork, circuit: Circuit) => void): CompiledInstallation {
+    const layout = buildInstallationCircuit(installation);
+    const key = liveKey(layout.circuit);
+    const found = this.find(layout.circuit, key, same);
+    if (found) reset(found, layout.circuit);
     return { installation, layout, network: found ?? this.compile(layout.circuit, key) };
   }
 
