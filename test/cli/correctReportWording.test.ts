@@ -109,6 +109,22 @@ describe('correct report wording', () => {
     expect(text).toContain(`! the equipment makes the current unbalance worse: |I2|/|I1| rises from ${b.toFixed(1)} % to ${a.toFixed(1)} %`);
   });
 
+  it('a target with no band to land in (lower PF at the upper bound) says so beside a miss, and a band with room does not', () => {
+    const { board } = boardOf('examples/hillside-workshop.yaml');
+    const reason = (r: ReturnType<typeof correctBoard>) => r.reasons.find((x) => x.startsWith('the target leaves no band to land in'));
+    const pinned = correctBoard(board, { arrangement: 'star-bank', target: { pf: 0.95, maxLaggingPf: 0.95 } });
+    expect(pinned.status).toBe('misses-target-with-available-units');
+    expect(reason(pinned)).toContain('(PF at least and at most 0.950 lagging)');
+    expect(reason(pinned)).toContain('give a lower PF target or a higher upper bound');
+    const unity = correctBoard(board, { arrangement: 'star-bank', target: { pf: 1 } });
+    expect(unity.status).toBe('misses-target-with-available-units');
+    expect(reason(unity)).toContain('(PF 1.000 and never leading)');
+    // The same board with room in the band meets it, and the reason is not given.
+    const room = correctBoard(board, { arrangement: 'star-bank', target: { pf: 0.95, maxLaggingPf: 0.99 } });
+    expect(['meets-target', 'meets-target-at-nominal-capacitance']).toContain(room.status);
+    expect(reason(room)).toBeUndefined();
+  });
+
   it('a board whose bank does not change the balance notably gets no such note', () => {
     const { board } = boardOf('examples/riverside-cold-store.yaml');
     const r = correctBoard(board, { arrangement: 'star-bank' });

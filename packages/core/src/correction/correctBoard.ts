@@ -10,7 +10,7 @@ import type { Arrangement, CorrectionSpec } from './correctionSpec.js';
 import { InputError, inputIssue } from '../errors.js';
 import { kvarFromSusceptance, reactorKvarOf, type EquipmentGroup } from './equipment.js';
 import { parseCorrectionSpec } from './validateCorrectionSpec.js';
-import { resolveTarget, TARGET_SLACK, type TargetCheck } from './correctionTarget.js';
+import { resolveTarget, TARGET_SLACK, widthlessTargetPf, type TargetCheck } from './correctionTarget.js';
 import { checkBalance } from './balanceTarget.js';
 import { sizeStarBank } from './sizeStarBank.js';
 import { sizeDeltaBank } from './sizeDeltaBank.js';
@@ -249,6 +249,8 @@ export function correctBoard(board: Board, spec: unknown): CorrectionReport {
   } else if (chosen.verdict === 'misses') {
     status = 'misses-target-with-available-units';
     reasons.push(infeasibleReason.unitsMissTarget([...verification.check.shortfalls, ...(balance?.shortfalls ?? [])]));
+    const pinned = widthlessTargetPf(target);
+    if (pinned !== null) reasons.push(infeasibleReason.widthlessTarget(pinned));
     // Rounded down beside the reactors (kept at their continuous values the capacitors may not pass their
     // requirement: the balance would tip), the small net compensation shrinks; rounded up did no better.
     const reactorKvar = sized.branches.reduce((sum, b) => sum + (b.element === 'reactor' ? -b.kvarAtAppliedV : 0), 0);

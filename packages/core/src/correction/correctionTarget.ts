@@ -83,6 +83,17 @@ export function resolveTarget(spec: TargetSpec | undefined, board: Board, arrang
   };
 }
 
+/**
+ * The PF a target pins where its band has no width — the strictest minimum PF already at the upper
+ * bound (`maxLaggingPf`, or unity when no line may lead) — or null where the band has room. Units come
+ * in fixed sizes, so a build lands in such a band only by chance; the verdict says so.
+ */
+export function widthlessTargetPf(target: ResolvedTarget): number | null {
+  const strictest = Math.max(target.pf, ...target.lines.map((l) => l.minPf));
+  const upper = target.leading === 'allowed' ? ((target.minLeadingPf ?? target.pf) >= 1 ? 1 : null) : (target.maxLaggingPf ?? 1);
+  return upper !== null && strictest >= upper - TARGET_SLACK ? upper : null;
+}
+
 /** Bounds on τ = Q/|P| for one line (index into `board.phases`). `high` is +∞ when the target is board-wide. */
 export function lineTanBounds(target: ResolvedTarget, lineIndex: number): { high: number; low: number } {
   const line = target.lines[lineIndex];

@@ -105,6 +105,8 @@ export const infeasibleReason = {
     return `${head}; the net compensation, capacitors less the ${reactor.toFixed(2)} kvar of reactors, falls from ${(ideal - reactor).toFixed(2)} to ${(built - reactor).toFixed(2)} kvar${tried}`;
   },
   unitsMissTarget: (shortfalls: readonly string[]) => `with the units chosen the corrected board misses the target: ${shortfalls.join('; ')}`,
+  widthlessTarget: (pf: number) =>
+    `the target leaves no band to land in (${pf >= 1 ? 'PF 1.000 and never leading' : `PF at least and at most ${f3(pf)} lagging`}): units come in fixed sizes and a bank switches in steps, so a build meets it only by chance; give a lower PF target${pf >= 1 ? '' : ' or a higher upper bound'}`,
 };
 
 /** What the wording needs of a reactor re-sizing (see ReactorResizing). */
