@@ -81,6 +81,25 @@ const CASES: Case[] = [
     code: 3,
     says: [/more than 50,000 entries/],
   },
+  // A key given twice: JSON.parse keeps the last value, other YAML readers the first or refuse; refused with the mapping's path.
+  {
+    name: 'a key given twice in a load (YAML)',
+    args: () => ['solve', file('twice.yaml', board('  - { name: oven, connection: A-N, kW: 2, pf: 1, kW: 3 }'))],
+    code: 3,
+    says: [/loads\[0\]: the key "kW" is given twice/, /keep one of the values/],
+  },
+  {
+    name: 'a key given twice in a load (JSON)',
+    args: () => ['solve', file('twice.json', '{"name": "x", "supply": {"system": "single-phase", "voltage": {"lineToNeutral": 230}, "frequencyHz": 50}, "loads": [{"name": "a", "connection": "A-N", "kW": 1, "pf": 1, "pf": 0.8}]}')],
+    code: 3,
+    says: [/loads\[0\]: the key "pf" is given twice \(the second time on line 1\)/],
+  },
+  {
+    name: 'a key given twice at the top level',
+    args: () => ['solve', file('twice-top.yaml', `${oneLoad}supply: again\n`)],
+    code: 3,
+    says: [/the top level: the key "supply" is given twice \(the second time on line \d+\)/],
+  },
   { name: 'an alias that contains itself', args: () => ['solve', file('alias-loop.yaml', `${oneLoad}note: &n [*n]\n`)], code: 3, says: [/./] },
   // 3. size limit, enforced while reading
   { name: '/dev/zero as a file', args: () => ['solve', '/dev/zero'], code: 3, says: [/\/dev\/zero/, /1 MB read limit/, /--max-input-mb/] },

@@ -4,7 +4,7 @@
  * get past: nesting depth, alias expansion, one document only.
  */
 import { isAlias, isCollection, isMap, isPair, isScalar, parseDocument, type Document, type Node } from 'yaml';
-import { InputError, inputIssue, type InputIssue } from '../errors.js';
+import { formatPath, InputError, inputIssue, type InputIssue } from '../errors.js';
 import { BOARD_TEXT_LIMITS, checkedBoardText, READ_HEADING, refuse } from './boardText.js';
 import { readJsonText } from './readJsonText.js';
 import { readPlainYamlText } from './plainYamlText.js';
@@ -21,7 +21,9 @@ const NOT_TEXT_KEY = 'keys that are plain text or numbers';
  * refused at no cost. Keys become own properties even when named `__proto__`, so they reach
  * validation as the unknown keys they are instead of replacing an object's prototype.
  */
-function toPlainData(doc: Document): unknown {
+function toPlainData(doc: Document, body: string): unknown {
+  // Where the conversion is, for the one error that needs a field path (a key given twice).
+  const trail: (string | number)[] = [];
   const anchors = new Map<string, Node>();
   const sizes = new Map<Node, number>();
   const values = new Map<Node, unknown>();
@@ -55,10 +57,14 @@ function toPlainData(doc: Document): unknown {
       const object: Record<string, unknown> = {};
       for (const pair of node.items) {
         const key = convert(pair.key);
-        const item = convert(pair.value);
-        size += key.size + item.size;
         if (key.value !== null && typeof key.value === 'object') refuse('invalid_key', NOT_TEXT_KEY, 'a key is a list or a mapping; board keys are plain text');
-        Object.defineProperty(object, String(key.value), { value: item.value, enumerable: true, writable: true, configurable: true });
+        const name = String(key.value);
+        if (Object.prototype.hasOwnProperty.call(object, name)) duplicateKey(trail, name, body, isScalar(pair.key) ? pair.key.range?.[0] : undefined);
+        trail.push(name);
+        const item = convert(pair.value);
+        trail.pop();
+        size += key.size + item.size;
+        Object.defineProperty(object, name, { value: item.value, enumerable: true, writable: true, configurable: true });
       }
       inProgress.delete(node);
       value = object;
@@ -66,7 +72,9 @@ function toPlainData(doc: Document): unknown {
       inProgress.add(node);
       const list: unknown[] = [];
       for (const entry of node.items) {
+        trail.push(list.length);
         const item = convert(isPair(entry) ? entry.value : entry);
+        trail.pop();
         size += item.size;
         list.push(item.value);
       }
@@ -78,6 +86,24 @@ function toPlainData(doc: Document): unknown {
     return { value, size };
   };
   return convert(doc.contents).value;
+}
+
+/** A key given twice in one mapping: refused with the mapping's field path and the second key's line (JSON.parse and YAML readers disagree on which value wins). */
+function duplicateKey(trail: readonly (string | number)[], name: string, body: string, offset: number | undefined): never {
+  const where = formatPath(trail);
+  const line = offset === undefined ? null : body.slice(0, offset).split('\n').length;
+  const key = JSON.stringify(name.length > 40 ? `${name.slice(0, 37)}...` : name);
+  throw new InputError(
+    [
+      {
+        code: 'duplicate_key',
+        path: where,
+        expected: 'each key once in a mapping',
+        message: `${where === '' ? 'the top level' : where}: the key ${key} is given twice${line === null ? '' : ` (the second time on line ${line})`}; keep one of the values`,
+      },
+    ],
+    READ_HEADING,
+  );
 }
 
 function syntaxIssues(doc: Document): InputIssue[] {
@@ -114,7 +140,8 @@ export function readBoardText(text: string): unknown {
 
 /** YAML 1.2 text (limits already checked) → plain data: the general reader behind readBoardText. */
 export function readYamlText(body: string): unknown {
-  const doc = parseDocument(body, { prettyErrors: true, uniqueKeys: true, version: '1.2', merge: false });
+  // Keys given twice are found while converting, where the field path is known (duplicateKey).
+  const doc = parseDocument(body, { prettyErrors: true, uniqueKeys: false, version: '1.2', merge: false });
   if (doc.errors.length) throw new InputError(syntaxIssues(doc), READ_HEADING);
   const declared = doc.directives?.yaml;
   if (declared?.explicit && declared.version !== '1.2')
@@ -123,5 +150,5 @@ export function readYamlText(body: string): unknown {
       'no %YAML line, or %YAML 1.2',
       `the file starts with "%YAML ${declared.version}": board files are always read as YAML 1.2 (under 1.1, 012 would mean 10 and 1:30 would mean 90); remove the %YAML line and check numbers written that way`,
     );
-  return toPlainData(doc);
+  return toPlainData(doc, body);
 }
