@@ -162,8 +162,10 @@ export interface CompensatorReading {
  */
 export interface SmallBranch {
   readonly branch: string;
-  /** Its output in the exact solution at nominal voltage, kvar (+ capacitor, − reactor). */
+  /** Its output in the exact solution at nominal voltage, kvar (+ capacitor, − reactor); after others were left out, as sized again around them. */
   readonly kvarAtNominalV: number;
+  /** True when it fell below the floor only as the other branches were sized again around ones left out before it. */
+  readonly afterOthersLeftOut: boolean;
   readonly leftOut: boolean;
   /** Leaving it out, as re-solved: the board with it and without it, how far the other branches moved, the targets then missed. */
   readonly effect: {

@@ -203,9 +203,10 @@ function effectFigures(e: SmallBranch['effect']): string {
 export function smallBranchWords(b: Omit<SmallBranch, 'branch'> & { branch: PhaseLabel }, percent: number): string {
   const what = `${b.kvarAtNominalV > 0 ? 'a capacitor' : 'a reactor'} of ${Math.abs(b.kvarAtNominalV).toFixed(2)} kvar on ${b.branch}, below ${f1(percent)} % of the compensator`;
   const without = `without it (the other branches re-sized by at most ${b.effect.largestResizeKvar.toFixed(2)} kvar, the board re-solved)`;
+  const has = b.afterOthersLeftOut ? `sized again around the branches left out, the compensator has ${what}` : `the exact solution ${b.leftOut ? 'also ' : ''}has ${what}`;
   return b.leftOut
-    ? `the exact solution also has ${what}: left out, because ${without} every target it met is still met — ${effectFigures(b.effect)}`
-    : `the exact solution has ${what}, kept: ${without} the board misses ${b.effect.missedWithout.map((t) => TARGET_WORDS[t]).join(' and ')} — ${effectFigures(b.effect)}`;
+    ? `${has}: left out, because ${without} every target it met is still met — ${effectFigures(b.effect)}`
+    : `${has}, kept: ${without} the board misses ${b.effect.missedWithout.map((t) => TARGET_WORDS[t]).join(' and ')} — ${effectFigures(b.effect)}`;
 }
 
 /**

@@ -40,31 +40,42 @@ export function leaveOutNegligible(probe: BoardProbe, state: ProbeState, input: 
   const floor = negligibleKvar(state.kvar);
   // Below the empty floor a branch already reads as none (iteration noise): it goes with the small ones, unlisted.
   const empty = emptyBelowKvar(state.kvar.reduce((sum, q) => sum + Math.abs(q), 0));
-  const isSmall = (q: number) => Math.abs(q) >= empty && Math.abs(q) < floor;
-  const order = state.kvar.flatMap((q, i) => (isSmall(q) ? [i] : [])).sort((a, b) => Math.abs(state.kvar[a]!) - Math.abs(state.kvar[b]!));
+  const smallest = (kvar: readonly number[], isSmall: (q: number, i: number) => boolean) =>
+    kvar.flatMap((q, i) => (isSmall(q, i) ? [i] : [])).sort((a, b) => Math.abs(kvar[a]!) - Math.abs(kvar[b]!));
+  let order = smallest(state.kvar, (q) => Math.abs(q) >= empty && Math.abs(q) < floor);
   if (order.length === 0) return { state, small: [] };
   // Noise-level branches are zero from the start; only the branches at or above the floor are sized again.
-  const free = state.kvar.map((q) => Math.abs(q) >= floor);
   let current = probe.at(state.kvar.map((q) => (Math.abs(q) < empty ? 0 : q)));
   const small: SmallBranch[] = [];
-  for (const i of order) {
-    const metBefore = input.targetsMet(current);
-    const without = resizeOtherBranches(probe, current.kvar.map((q, j) => (j === i ? 0 : q)), free, input.bases, input.maxIterations);
-    const metWithout = input.targetsMet(without);
-    const missed = metBefore.filter((t) => !metWithout.includes(t));
-    const leftOut = missed.length === 0;
-    small.push({
-      branch: probe.slots[i]!.branch,
-      kvarAtNominalV: state.kvar[i]!,
-      leftOut,
-      effect: {
-        with: input.reading(current),
-        without: input.reading(without),
-        largestResizeKvar: Math.max(0, ...without.kvar.map((q, j) => (j === i ? 0 : Math.abs(q - current.kvar[j]!)))),
-        missedWithout: missed,
-      },
-    });
-    if (leftOut) current = without;
+  const considered = new Set<number>();
+  let firstPass = true;
+  // Sized again around the ones left out, a branch can itself fall below the floor: another pass takes it
+  // (a 0.04 kvar reactor is not bought where the targets hold without it).
+  while (order.length) {
+    const free = current.kvar.map((q) => Math.abs(q) >= floor);
+    for (const i of order) {
+      considered.add(i);
+      const metBefore = input.targetsMet(current);
+      const without = resizeOtherBranches(probe, current.kvar.map((q, j) => (j === i ? 0 : q)), free, input.bases, input.maxIterations);
+      const metWithout = input.targetsMet(without);
+      const missed = metBefore.filter((t) => !metWithout.includes(t));
+      const leftOut = missed.length === 0;
+      small.push({
+        branch: probe.slots[i]!.branch,
+        kvarAtNominalV: current.kvar[i]!,
+        afterOthersLeftOut: !firstPass,
+        leftOut,
+        effect: {
+          with: input.reading(current),
+          without: input.reading(without),
+          largestResizeKvar: Math.max(0, ...without.kvar.map((q, j) => (j === i ? 0 : Math.abs(q - current.kvar[j]!)))),
+          missedWithout: missed,
+        },
+      });
+      if (leftOut) current = without;
+    }
+    firstPass = false;
+    order = smallest(current.kvar, (q, i) => !considered.has(i) && q !== 0 && Math.abs(q) < floor);
   }
   return { state: current, small };
 }
