@@ -226,7 +226,10 @@ export const scenarioYearLine = (r: BoardScenarios): string =>
 export function scenarioOverRating(r: BoardScenarios, label: PhaseLabeller = LETTERED, where = ''): string[] {
   const names = (['A', 'B', 'C'] as const).slice(0, r.scenarios[0]?.lineA.length ?? 0).map(label);
   return r.scenarios.flatMap((s) => [
-    ...s.lineA.flatMap((a, k) => (r.lineRatingA !== null && a > r.lineRatingA ? [`  ${where}${s.name}: line ${names[k]} carries ${fixed(a, 1)} A, above its ${fixed(r.lineRatingA, 0)} A rating`] : [])),
+    ...s.lineA.flatMap((a, k) => {
+      const rating = r.lineRatingsA[k] ?? null;
+      return rating !== null && a > rating ? [`  ${where}${s.name}: line ${names[k]} carries ${fixed(a, 1)} A, above its ${fixed(rating, 0)} A rating`] : [];
+    }),
     ...(s.neutralA !== null && r.neutralRatingA !== null && s.neutralA > r.neutralRatingA ? [`  ${where}${s.name}: the neutral carries ${fixed(s.neutralA, 1)} A, above its ${fixed(r.neutralRatingA, 0)} A rating`] : []),
   ]);
 }

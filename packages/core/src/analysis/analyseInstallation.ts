@@ -44,7 +44,7 @@ export function analyseInstallation(solution: InstallationSolution, options: Ana
         phase,
         // The board's reading of its incoming line current, round-off already read as 0 (noiseFloor.ts).
         current: r.phases[k]!.current,
-        loadingPercent: s.board.lineRatingA ? (100 * r.phases[k]!.current.magnitude) / s.board.lineRatingA : null,
+        loadingPercent: r.phases[k]!.loadingPercent,
         voltageDropPercent: (100 * (sending - r.phases[k]!.voltage.magnitude)) / ln,
       };
     });

@@ -4,7 +4,7 @@
  */
 import { abs, absSquared, add, conj, mul, scale, sub, sum, toPhasor, ZERO, type ComplexValue } from '../complex.js';
 import { isThreePhase } from '../board/systemTopology.js';
-import type { PhaseId } from '../board/boardModel.js';
+import { lineRatingOf, type PhaseId } from '../board/boardModel.js';
 import { terminalVoltage, type NetworkSolution } from '../network/solveNetwork.js';
 import { sequenceComponents, type SequenceSet } from './symmetricalComponents.js';
 import { deviationFromAveragePercent, motorDeratingFactor } from './unbalanceIndices.js';
@@ -39,6 +39,9 @@ function boardVoltages(solution: Pick<NetworkSolution, 'board' | 'topology' | 'n
   return { bus, neutralBar, phase: bus.map((v) => sub(v, reference)) };
 }
 
+/** A current as a percentage of a rating; null without one. */
+const loadingOf = (currentA: number, ratingA: number | null): number | null => (ratingA ? (100 * currentA) / ratingA : null);
+
 function readPhases(solution: NetworkSolution, phaseVoltages: readonly ComplexValue[]): PhaseReading[] {
   const { board } = solution;
   const ln = board.nominalLineToNeutralV;
@@ -51,7 +54,7 @@ function readPhases(solution: NetworkSolution, phaseVoltages: readonly ComplexVa
       voltagePercent: (100 * abs(v)) / ln,
       current: toPhasor(i),
       ...powerReading(mul(v, conj(i))),
-      loadingPercent: board.lineRatingA ? (100 * abs(i)) / board.lineRatingA : null,
+      loadingPercent: loadingOf(abs(i), lineRatingOf(board, k)),
       // What line-to-neutral loads lose: to the neutral bar, so the neutral conductor's drop counts too.
       voltageDropPercent: (100 * (abs(board.emf[k]!) - abs(v))) / ln,
     };
@@ -245,7 +248,7 @@ export function analyseSolution(solved: NetworkSolution): BoardResult {
   const label = (term: string) => labelIn(conventions.phaseNames, term);
   const limits = conventions.voltageLimits;
   const feederResistance = board.hasNeutral ? { lines: (board.lineImpedances ?? board.phases.map(() => board.lineImpedance)).map((z) => z.re), neutral: board.neutralImpedance.re } : null;
-  const warnings = boardWarnings({ belowThreshold, phases, neutral, unbalance, loads, lineRatingA: board.lineRatingA, transformer, limits, label, lineToLine, hasNeutral: board.hasNeutral, region: conventions.region, feederResistance });
+  const warnings = boardWarnings({ belowThreshold, phases, neutral, unbalance, loads, lineRatingsA: board.phases.map((_, k) => lineRatingOf(board, k)), transformer, limits, label, lineToLine, hasNeutral: board.hasNeutral, region: conventions.region, feederResistance });
   const voltageCheck = checkVoltages({ limits, phases, lineToLine, hasNeutral: board.hasNeutral, loads, label });
   const cautions = warnings.some((w) => w.code.startsWith('neutral')) ? [NEUTRAL_CAUTION, GENERAL_CAUTION] : [GENERAL_CAUTION];
   return {

@@ -217,9 +217,9 @@ export interface IncomerReading {
   /** Apparent power through the incomer at this board, Σ|V||I| over the lines, kVA. */
   readonly kVA: number;
   readonly largestLineCurrentA: number;
-  /** The feeder's line rating, A; null where the file gives none. */
+  /** The feeder's line rating, A (with a rating per line, the rating of the line most loaded against its own); null where the file gives none. */
   readonly ratingA: number | null;
-  /** Most loaded line against the rating, %; null without a rating. */
+  /** Most loaded line against its rating, %; null without a rating. */
   readonly loadingPercent: number | null;
 }
 

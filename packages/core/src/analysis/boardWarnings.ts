@@ -48,7 +48,8 @@ export function boardWarnings(input: {
   readonly neutral: NeutralReading | null;
   readonly unbalance: UnbalanceReading | null;
   readonly loads: readonly LoadReading[];
-  readonly lineRatingA: number | null;
+  /** Each line's rating, A, in the order of `phases` (null: none given). */
+  readonly lineRatingsA: readonly (number | null)[];
   readonly transformer?: TransformerReading | null;
   /** The limits voltages are judged against; default EN 50160's ±10 %. */
   readonly limits?: VoltageLimits;
@@ -63,7 +64,7 @@ export function boardWarnings(input: {
   readonly feederResistance?: { readonly lines: readonly number[]; readonly neutral: number } | null;
 }): BoardWarning[] {
   const out: BoardWarning[] = [];
-  const { phases, neutral, unbalance, loads, lineRatingA } = input;
+  const { phases, neutral, unbalance, loads, lineRatingsA } = input;
   const label = input.label ?? ((t: string) => t);
   const limits = input.limits ?? presetLimits('en50160-supply');
   const heaviest = phases.reduce<PhaseReading | undefined>((h, p) => (h === undefined || p.current.magnitude > h.current.magnitude ? p : h), undefined);
@@ -108,15 +109,16 @@ export function boardWarnings(input: {
       value: neutral.current.magnitude,
       threshold: neutral.ratingA,
     });
-  if (lineRatingA !== null)
-    for (const p of phases)
-      if (p.current.magnitude > lineRatingA)
-        out.push({
-          code: 'line-over-rating',
-          message: `phase ${label(p.phase)} carries ${fmt(p.current.magnitude)} A, above the line rating of ${fmt(lineRatingA)} A`,
-          value: p.current.magnitude,
-          threshold: lineRatingA,
-        });
+  phases.forEach((p, k) => {
+    const rating = lineRatingsA[k] ?? null;
+    if (rating !== null && p.current.magnitude > rating)
+      out.push({
+        code: 'line-over-rating',
+        message: `line ${label(p.phase)} carries ${fmt(p.current.magnitude)} A, above its rating of ${fmt(rating)} A`,
+        value: p.current.magnitude,
+        threshold: rating,
+      });
+  });
   if (unbalance && unbalance.voltageFactorPercent > WARNING_THRESHOLDS.voltageUnbalancePercent)
     out.push({
       code: 'voltage-unbalance',

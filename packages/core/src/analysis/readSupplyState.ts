@@ -4,6 +4,7 @@
  */
 import { abs, mul, sub } from '../complex.js';
 import type { NetworkSolution } from '../network/solveNetwork.js';
+import { lineRatingOf } from '../board/boardModel.js';
 import type { IncomerReading, LineToLineReading, OperatingPoint, PhaseReading, TransformerReading } from './boardResult.js';
 
 export const SUPPLY_LIMITS = {
@@ -46,14 +47,18 @@ export function readIncomer(solution: NetworkSolution, phases: readonly PhaseRea
   if (!place || place.boardIndex === 0) return null;
   const { installation, boardIndex } = place;
   const parent = installation.subBoards[boardIndex - 1]!.fedFrom;
-  const ratingA = solution.board.lineRatingA;
   const largest = Math.max(0, ...phases.map((p) => p.current.magnitude));
+  // With a rating per line, the most loaded line against its own rating speaks for the feeder.
+  const ratings = phases.map((_, k) => lineRatingOf(solution.board, k));
+  const worst = phases.reduce<number | null>((w, p, k) => (ratings[k] && (w === null || p.current.magnitude / ratings[k]! > phases[w]!.current.magnitude / ratings[w]!) ? k : w), null);
+  const ratingA = worst === null ? null : ratings[worst]!;
+  const loadingPercent = worst === null ? null : (100 * phases[worst]!.current.magnitude) / ratingA!;
   return {
     fedFrom: parent === 0 ? installation.main.name : installation.subBoards[parent - 1]!.name,
     kVA: phases.reduce((sum, p) => sum + (p.voltage.magnitude * p.current.magnitude) / 1000, 0),
     largestLineCurrentA: largest,
     ratingA,
-    loadingPercent: ratingA ? (100 * largest) / ratingA : null,
+    loadingPercent,
   };
 }
 

@@ -78,7 +78,10 @@ export interface Board {
   readonly neutralImpedance: ComplexValue;
   /** True when the neutral conductor is broken (what-if). */
   readonly neutralOpen: boolean;
+  /** The smallest rating given for a line conductor (the weakest line), A. */
   readonly lineRatingA: number | null;
+  /** Each line conductor's own rating, A, in the order of `phases` (null where none is given); absent on boards built in code, which read `lineRatingA` for every line (see `lineRatingOf`). */
+  readonly lineRatingsA?: readonly (number | null)[];
   readonly neutralRatingA: number | null;
   /** Rated kVA of the supply transformer; null when the source is given another way. */
   readonly transformerKVA: number | null;
@@ -124,7 +127,10 @@ export interface SubBoardFeeder {
   readonly neutralImpedance: ComplexValue;
   /** True when this feeder's neutral conductor is broken (what-if). */
   readonly neutralOpen: boolean;
+  /** The smallest rating given for a line conductor, A. */
   readonly lineRatingA: number | null;
+  /** Each line conductor's own rating, A, in the order of the installation's phases (null where none is given). */
+  readonly lineRatingsA?: readonly (number | null)[];
   readonly neutralRatingA: number | null;
   /** The cable in words when it came from the cable library (e.g. `4×95 mm² Cu, 40 m`). */
   readonly description: string | null;
@@ -174,4 +180,13 @@ export interface BankInService {
   readonly detuningPercent: number;
   /** Index in the board's loads of each part in service (the fixed part first, then the steps in service). */
   readonly loads: readonly number[];
+}
+
+/**
+ * The rating of line `k` (index into `phases`): its own conductor's where the feeder gives one per line,
+ * else the board's line rating. A 16 mm² phase beside two 95 mm² ones is judged against its own 40 A,
+ * and the 95 mm² ones against theirs, not against the weakest.
+ */
+export function lineRatingOf(board: Pick<Board, 'lineRatingA' | 'lineRatingsA'>, k: number): number | null {
+  return board.lineRatingsA ? (board.lineRatingsA[k] ?? null) : board.lineRatingA;
 }

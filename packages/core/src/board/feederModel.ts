@@ -66,6 +66,8 @@ export interface FeederModel {
   readonly neutralImpedance: ComplexValue;
   /** The smallest rating given for a line conductor (the weakest phase limits the feeder), A. */
   readonly lineRatingA: number | null;
+  /** Each line conductor's own rating, A, in the order of the phases (null where none is given). */
+  readonly lineRatingsA: readonly (number | null)[];
   readonly neutralRatingA: number | null;
   readonly description: string | null;
 }
@@ -84,6 +86,7 @@ export function feederModel(feeder: FeederSpec | undefined, phases: readonly Pha
     lineImpedances: phases.map((p) => conductorImpedance(conductorOf(p), feeder, frequencyHz)),
     neutralImpedance: conductorImpedance(feeder?.neutral, feeder, frequencyHz),
     lineRatingA: ratings.length ? Math.min(...ratings) : null,
+    lineRatingsA: phases.map((p) => conductorOf(p)?.ratingA ?? null),
     neutralRatingA: feeder?.neutral?.ratingA ?? null,
     description,
   };

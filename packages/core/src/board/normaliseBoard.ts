@@ -185,6 +185,7 @@ export function normaliseBoard(spec: BoardBaseSpec): Board {
     neutralImpedance: feeder.neutralImpedance,
     neutralOpen: false,
     lineRatingA: feeder.lineRatingA,
+    lineRatingsA: feeder.lineRatingsA,
     neutralRatingA: feeder.neutralRatingA,
     transformerKVA: spec.supply.impedance ? null : (spec.supply.transformer?.kVA ?? null),
     loads: spec.loads.map((load, i) => loadBranches(load, i, spec, ln, ll)),

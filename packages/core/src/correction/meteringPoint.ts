@@ -39,7 +39,7 @@ export interface MeteringPlace {
 /** The installation with a load-free board at the supply's terminals, feeding the written main board through the service cable. */
 function withOriginBoard(installation: Installation): Installation {
   const { main } = installation;
-  const { installation: _place, lineImpedances, ...supply } = main;
+  const { installation: _place, lineImpedances, lineRatingsA, ...supply } = main;
   const origin: Board = { ...supply, name: ORIGIN_BOARD, lineImpedance: ZERO, neutralImpedance: ZERO, neutralOpen: false, lineRatingA: null, neutralRatingA: null, loads: [] };
   const service: SubBoard = {
     name: main.name,
@@ -49,6 +49,7 @@ function withOriginBoard(installation: Installation): Installation {
       neutralImpedance: main.neutralImpedance,
       neutralOpen: main.neutralOpen,
       lineRatingA: main.lineRatingA,
+      ...(lineRatingsA ? { lineRatingsA } : {}),
       neutralRatingA: main.neutralRatingA,
       description: installation.serviceFeederDescription ?? null,
     },

@@ -44,7 +44,7 @@ export function boardOfInstallation(installation: Installation, index: number): 
   const place = installation.subBoards.length > 0 ? { installation: { ...installation, main }, boardIndex: index } : undefined;
   if (index === 0) return place ? { ...main, installation: place } : main;
   const sb = installation.subBoards[index - 1]!;
-  const { sourceImpedances: _s, sourceStarImpedance: _z, openDeltaCorner: _o, lineImpedances: _l, installation: _i, ...supply } = main;
+  const { sourceImpedances: _s, sourceStarImpedance: _z, openDeltaCorner: _o, lineImpedances: _l, lineRatingsA: _r, installation: _i, ...supply } = main;
   return {
     ...supply,
     name: sb.name,
@@ -56,6 +56,7 @@ export function boardOfInstallation(installation: Installation, index: number): 
     neutralImpedance: sb.feeder.neutralImpedance,
     neutralOpen: sb.feeder.neutralOpen,
     lineRatingA: sb.feeder.lineRatingA,
+    ...(sb.feeder.lineRatingsA ? { lineRatingsA: sb.feeder.lineRatingsA } : {}),
     neutralRatingA: sb.feeder.neutralRatingA,
     loads: sb.loads,
     ...(sb.voltageLimits ? { conventions: { ...conventionsOf(main), voltageLimits: sb.voltageLimits } } : {}),

@@ -5,7 +5,7 @@
  * factor weigh them by their hours. The hours and the reading of one board's
  * figures are shared with the installation's scenarios (studyInstallationScenarios.ts).
  */
-import type { Board } from '../board/boardModel.js';
+import { lineRatingOf, type Board } from '../board/boardModel.js';
 import type { PhaseNaming } from '../board/conventions/phaseNames.js';
 import { conventionsOf } from '../board/conventions/boardConventions.js';
 import { InputError, inputIssue, type InputIssue } from '../errors.js';
@@ -35,7 +35,8 @@ export interface BoardScenarios {
   readonly kvarhLagging: number;
   /** Over the year; null when nothing was imported. */
   readonly billingPf: number | null;
-  readonly lineRatingA: number | null;
+  /** Each line's rating, A, in the order of the board's phases (null: none given). */
+  readonly lineRatingsA: readonly (number | null)[];
   readonly neutralRatingA: number | null;
 }
 
@@ -108,7 +109,7 @@ export function readBoardScenarios(board: Board, figures: IntervalFigures, scena
     kWhImport,
     kvarhLagging,
     billingPf: billingPowerFactor(kWhImport, kvarhLagging),
-    lineRatingA: board.lineRatingA,
+    lineRatingsA: board.phases.map((_, k) => lineRatingOf(board, k)),
     neutralRatingA: board.neutralRatingA,
   };
 }

@@ -4,7 +4,7 @@
  */
 import { SUPPLY_LIMITS } from '../analysis/readSupplyState.js';
 import { asPrinted, type VoltageLimits } from '../board/conventions/voltageLimits.js';
-import type { Board } from '../board/boardModel.js';
+import { lineRatingOf, type Board } from '../board/boardModel.js';
 import type { IntervalFigures } from './solveBatch.js';
 import { countWhere, maximumOf, minimumOf, percentilesOf, topIndices } from './intervalStatistics.js';
 import { billMonths, type MonthReading } from './monthlyBilling.js';
@@ -117,7 +117,7 @@ export function summariseFigures(f: IntervalFigures, ctx: SummaryContext): Profi
       hoursAboveLimit: rating === null ? null : countWhere(n, (i) => x[i]! > rating) * h,
     };
   };
-  const conductors = board.phases.map((p, k) => conductor(p, f.lineA[k]!, board.lineRatingA));
+  const conductors = board.phases.map((p, k) => conductor(p, f.lineA[k]!, lineRatingOf(board, k)));
   if (board.hasNeutral) conductors.push(conductor('N', f.neutralA, limits.neutralA));
   const vPct = 100 / board.nominalLineToNeutralV;
   const voltages = board.phases.map((p, k) => {
