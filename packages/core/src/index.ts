@@ -83,6 +83,7 @@ export { solveNetworkByNewton } from './network/solveNetworkByNewton.js';
 export { WARNING_THRESHOLDS } from './analysis/boardWarnings.js';
 export { NOISE_FLOOR_RELATIVE } from './analysis/noiseFloor.js';
 export { SUPPLY_LIMITS } from './analysis/readSupplyState.js';
+export { sourceUnitsWords } from './analysis/sourceUnitsWords.js';
 
 // Correction
 export type {

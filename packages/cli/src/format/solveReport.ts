@@ -1,5 +1,5 @@
 /** BoardResult → the human-readable report of `trivar solve`. */
-import { bandVoltsWords, bandWords, judgedNominals, labelIn, regionWords, type BoardResult } from '@trivar/core';
+import { bandVoltsWords, bandWords, judgedNominals, labelIn, regionWords, sourceUnitsWords, type BoardResult } from '@trivar/core';
 import { fixed, renderTable, renderTableWithin, section } from './textTable.js';
 import { REPORT_WIDTH, wrapText } from './wrapText.js';
 import { exportSentence, isExport, pfCell, varWords } from './powerFlowWords.js';
@@ -243,6 +243,7 @@ function powerBlock(r: BoardResult): string {
     ...(r.transformer
       ? [row('transformer', `${fixed(r.transformer.kVA, 2)} kVA at its terminals; ${fixed(r.transformer.loadingPercent, 0)} % of rated current (${fixed(r.transformer.ratedKVA, 0)} kVA)`)]
       : []),
+    ...(r.sourceUnits ? [wrapText(sourceUnitsWords(r.sourceUnits, labeller(r)), `  ${'supply units'.padEnd(16)} `, ' '.repeat(19))] : []),
     ...(r.incomer
       ? [
           wrapText(

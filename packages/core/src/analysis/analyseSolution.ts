@@ -16,7 +16,7 @@ import { boardWarnings, GENERAL_CAUTION, NEUTRAL_CAUTION } from './boardWarnings
 import { readLoads } from './readLoads.js';
 import { powerReading } from './powerReading.js';
 import { currentNoiseFloor, SEQUENCE_VOLTAGE_RESOLUTION, sequencesAbove, withNoiseFloor } from './noiseFloor.js';
-import { judgeOperatingPoint, readIncomer, readTransformer } from './readSupplyState.js';
+import { judgeOperatingPoint, readIncomer, readSourceUnits, readTransformer } from './readSupplyState.js';
 import type { BoardResult, LineToLineReading, LossReading, NeutralReading, PhaseReading, PowerReading, UnbalanceReading } from './boardResult.js';
 
 const PAIRS: Record<string, readonly [PhaseId, PhaseId][]> = {
@@ -243,12 +243,13 @@ export function analyseSolution(solved: NetworkSolution): BoardResult {
   const unbalance = seq?.unbalance ?? null;
   const belowThreshold = loadsBelowThreshold(solution);
   const transformer = readTransformer(solution);
+  const sourceUnits = readSourceUnits(solution);
   const operatingPoint = judgeOperatingPoint(solution, phases, lineToLine, belowThreshold);
   const conventions = conventionsOf(board);
   const label = (term: string) => labelIn(conventions.phaseNames, term);
   const limits = conventions.voltageLimits;
   const feederResistance = board.hasNeutral ? { lines: (board.lineImpedances ?? board.phases.map(() => board.lineImpedance)).map((z) => z.re), neutral: board.neutralImpedance.re } : null;
-  const warnings = boardWarnings({ belowThreshold, phases, neutral, unbalance, loads, lineRatingsA: board.phases.map((_, k) => lineRatingOf(board, k)), transformer, limits, label, lineToLine, hasNeutral: board.hasNeutral, region: conventions.region, feederResistance });
+  const warnings = boardWarnings({ belowThreshold, phases, neutral, unbalance, loads, lineRatingsA: board.phases.map((_, k) => lineRatingOf(board, k)), transformer, sourceUnits, limits, label, lineToLine, hasNeutral: board.hasNeutral, region: conventions.region, feederResistance });
   const voltageCheck = checkVoltages({ limits, phases, lineToLine, hasNeutral: board.hasNeutral, loads, label });
   const cautions = warnings.some((w) => w.code.startsWith('neutral')) ? [NEUTRAL_CAUTION, GENERAL_CAUTION] : [GENERAL_CAUTION];
   return {
@@ -278,6 +279,7 @@ export function analyseSolution(solved: NetworkSolution): BoardResult {
     cautions,
     openNeutral: null,
     transformer,
+    sourceUnits,
     incomer: readIncomer(solution, phases),
     operatingPoint,
   };

@@ -210,6 +210,19 @@ export interface TransformerReading {
   readonly loadingPercent: number;
 }
 
+/** A rated single-phase unit of a bank or an open delta, loaded by the line current through it. */
+export interface SourceUnitReading {
+  /** Where it is connected, data keys: `A` (to the star point, in a bank) or `A-B` (an open delta's winding). */
+  readonly winding: string;
+  readonly ratedKVA: number;
+  /** The line current through it, A. */
+  readonly currentA: number;
+  /** Rated current: kVA over its rated voltage (line-to-neutral in a bank, line-to-line in an open delta), A. */
+  readonly ratedCurrentA: number;
+  /** Its current against the rated current, %: above 100 the unit is overloaded. */
+  readonly loadingPercent: number;
+}
+
 /** A sub-board's incomer: the feeder from the board that feeds it, loaded by this board and every board beyond it. */
 export interface IncomerReading {
   /** The feeding board's name. */
@@ -270,6 +283,8 @@ export interface BoardResult {
   readonly openNeutral: OpenNeutralStudy | null;
   /** Supply transformer loading; null without a transformer, and on a sub-board (see `incomer`). */
   readonly transformer: TransformerReading | null;
+  /** Loading of the supply's rated single-phase units (a bank or an open delta given in kVA); null otherwise, and on a sub-board. */
+  readonly sourceUnits: readonly SourceUnitReading[] | null;
   /** A sub-board of an installation: its incomer's loading; null on a main (or single) board. */
   readonly incomer: IncomerReading | null;
   readonly operatingPoint: OperatingPoint;

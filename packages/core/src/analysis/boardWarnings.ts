@@ -2,12 +2,13 @@
  * Warnings with their thresholds stated, and the cautions shown with results.
  * All wording for board results lives here.
  */
-import type { BoardWarning, NeutralReading, PhaseReading, LoadReading, TransformerReading, UnbalanceReading, LineToLineReading } from './boardResult.js';
+import type { BoardWarning, NeutralReading, PhaseReading, LoadReading, SourceUnitReading, TransformerReading, UnbalanceReading, LineToLineReading } from './boardResult.js';
 import { regionWords } from '../board/conventions/regionWords.js';
 import { boardVoltagePoints } from './voltageCheck.js';
 import { bandWords, judgeVoltage, presetLimits, type VoltageLimits } from '../board/conventions/voltageLimits.js';
 import type { Region } from '../board/conventions/region.js';
 import { circuitNumberMismatches } from './panelNumbering.js';
+import { unitWords } from './sourceUnitsWords.js';
 
 export const WARNING_THRESHOLDS = {
   /** Voltage unbalance factor above which supply-quality standards start to object (EN 50160, IEC 61000-2-2: 2 %). */
@@ -51,6 +52,7 @@ export function boardWarnings(input: {
   /** Each line's rating, A, in the order of `phases` (null: none given). */
   readonly lineRatingsA: readonly (number | null)[];
   readonly transformer?: TransformerReading | null;
+  readonly sourceUnits?: readonly SourceUnitReading[] | null;
   /** The limits voltages are judged against; default EN 50160's ±10 %. */
   readonly limits?: VoltageLimits;
   /** Report label of a phase or line pair (`A` → `L1`); default as is. */
@@ -191,6 +193,14 @@ export function boardWarnings(input: {
       value: b.pu * 100,
       threshold: b.threshold * 100,
     });
+  for (const u of input.sourceUnits ?? [])
+    if (u.loadingPercent > 100)
+      out.push({
+        code: 'source-unit-overload',
+        message: `the supply's single-phase unit on ${unitWords(u.winding, label)} is loaded to ${fmt(u.loadingPercent, 0)} % of its ${fmt(u.ratedKVA, 1)} kVA rating (${fmt(u.currentA)} A through it against ${fmt(u.ratedCurrentA)} A rated): it will overheat, and its protection should trip`,
+        value: u.loadingPercent,
+        threshold: 100,
+      });
   const t = input.transformer;
   if (t && t.loadingPercent > 100)
     out.push({
@@ -236,3 +246,4 @@ export const NEUTRAL_CAUTION =
 
 /** The broken-neutral cautions in IEC wording (PEN, TN-C-S); `regionWords` gives each region's. */
 export const OPEN_NEUTRAL_CAUTIONS: readonly string[] = regionWords('iec', 'three-phase-4wire').openNeutralCautions;
+

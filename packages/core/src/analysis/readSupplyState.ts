@@ -5,7 +5,7 @@
 import { abs, mul, sub } from '../complex.js';
 import type { NetworkSolution } from '../network/solveNetwork.js';
 import { lineRatingOf } from '../board/boardModel.js';
-import type { IncomerReading, LineToLineReading, OperatingPoint, PhaseReading, TransformerReading } from './boardResult.js';
+import type { IncomerReading, LineToLineReading, OperatingPoint, PhaseReading, SourceUnitReading, TransformerReading } from './boardResult.js';
 
 export const SUPPLY_LIMITS = {
   /**
@@ -39,6 +39,20 @@ export function readTransformer(solution: NetworkSolution): TransformerReading |
     largest = Math.max(largest, abs(i));
   });
   return { ratedKVA: board.transformerKVA, kVA, ratedCurrentA, largestLineCurrentA: largest, loadingPercent: (100 * largest) / ratedCurrentA };
+}
+
+/**
+ * Loading of each rated single-phase unit of a bank or an open delta: the line current through it
+ * against its rated current (kVA over its rated voltage). Null where the supply has no such units.
+ */
+export function readSourceUnits(solution: NetworkSolution): SourceUnitReading[] | null {
+  const { board } = solution;
+  if (!board.sourceUnits?.length || board.installation?.boardIndex) return null;
+  return board.sourceUnits.map((u) => {
+    const currentA = abs(solution.lineCurrents[board.phases.indexOf(u.line)]!);
+    const ratedCurrentA = (u.kVA * 1000) / u.ratedV;
+    return { winding: u.winding, ratedKVA: u.kVA, currentA, ratedCurrentA, loadingPercent: (100 * currentA) / ratedCurrentA };
+  });
 }
 
 /** A sub-board's incomer: what its feeder carries at the board, against the feeder's rating. Null on a main board. */

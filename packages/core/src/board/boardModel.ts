@@ -107,6 +107,11 @@ export interface Board {
    * phase voltages (only their differences drive the windings).
    */
   readonly openDeltaCorner?: PhaseId;
+  /**
+   * The single-phase units of a bank or an open delta that give a kVA rating: each carries one line's
+   * current (a bank's unit on A-N carries line A; an open delta's unit on A-B, corner B, carries line A).
+   */
+  readonly sourceUnits?: readonly SourceUnit[];
   /** Unequal feeder impedances per line conductor, ohm, in the order of `phases`; `lineImpedance` is then their mean. */
   readonly lineImpedances?: readonly ComplexValue[];
   /** Set when the board is one board of an installation: a solve covers the whole installation. */
@@ -118,6 +123,17 @@ export interface InstallationPlace {
   readonly installation: Installation;
   /** 0 for the main board, i + 1 for `subBoards[i]`. */
   readonly boardIndex: number;
+}
+
+/** A single-phase supply unit with a rating (see `Board.sourceUnits`). */
+export interface SourceUnit {
+  /** Where it is connected, data keys: `A` (A to the star point, in a bank) or `A-B` (an open delta's winding). */
+  readonly winding: string;
+  readonly kVA: number;
+  /** Its rated voltage: line-to-neutral in a bank, line-to-line in an open delta, V. */
+  readonly ratedV: number;
+  /** The line whose current flows through it. */
+  readonly line: PhaseId;
 }
 
 /** A feeder from a parent board to a sub-board: impedance per conductor. */

@@ -5,7 +5,7 @@
 import { add, complex, degToRad, inverse, polar, scale, sub, conj, type ComplexValue } from '../complex.js';
 import type { BoardBaseSpec, LoadBaseSpec, WindingSpec } from './boardSchema.js';
 import { feederModel } from './feederModel.js';
-import type { Board, BoardLoad, LoadBranch, Terminal, ZipFractions } from './boardModel.js';
+import type { Board, BoardLoad, LoadBranch, SourceUnit, Terminal, ZipFractions } from './boardModel.js';
 import { phasesOf, systemHasNeutral, type PhaseId } from './systemTopology.js';
 import { nominalOfNotation, readVoltageNotation } from './conventions/voltageNotation.js';
 import { resolveConventions } from './conventions/boardConventions.js';
@@ -59,12 +59,21 @@ function sourceImpedance(spec: BoardBaseSpec, ln: number, ll: number | null): Co
   return system === 'split-phase' ? scale(z, 0.5) : z;
 }
 
+type UnequalSourceKey = 'sourceImpedances' | 'openDeltaCorner' | 'sourceStarImpedance' | 'sourceUnits';
+
 /** The unequal-source fields of a board: per-phase impedances, open-delta corner, star-point return. */
-function unequalSource(spec: BoardBaseSpec, phases: readonly PhaseId[], ln: number, ll: number | null): Partial<Pick<Board, 'sourceImpedances' | 'openDeltaCorner' | 'sourceStarImpedance'>> {
+function unequalSource(spec: BoardBaseSpec, phases: readonly PhaseId[], ln: number, ll: number | null): Partial<Pick<Board, UnequalSourceKey>> {
   const { impedance, bank, openDelta, zeroSequence } = spec.supply;
-  const out: { -readonly [K in 'sourceImpedances' | 'openDeltaCorner' | 'sourceStarImpedance']?: Board[K] } = {};
+  const out: { -readonly [K in UnequalSourceKey]?: Board[K] } = {};
+  const units: SourceUnit[] = [];
   if (impedance && !('r' in impedance)) out.sourceImpedances = phases.map((p) => (impedance[p] ? complex(impedance[p].r, impedance[p].x) : complex(0, 0)));
-  if (bank) out.sourceImpedances = phases.map((p) => (bank[p] ? windingImpedance(bank[p], ln) : complex(0, 0)));
+  if (bank) {
+    out.sourceImpedances = phases.map((p) => (bank[p] ? windingImpedance(bank[p], ln) : complex(0, 0)));
+    for (const p of phases) {
+      const w = bank[p];
+      if (w && 'kVA' in w) units.push({ winding: p, kVA: w.kVA, ratedV: ln, line: p });
+    }
+  }
   if (openDelta) {
     const pairs = (['A-B', 'B-C', 'C-A'] as const).filter((k) => openDelta[k] !== undefined);
     const [first, second] = pairs.map((k) => k.split('-') as [PhaseId, PhaseId]);
@@ -75,7 +84,12 @@ function unequalSource(spec: BoardBaseSpec, phases: readonly PhaseId[], ln: numb
       const key = pairs.find((k) => k.includes(p))!;
       return windingImpedance(openDelta[key]!, ll ?? ln);
     });
+    for (const key of pairs) {
+      const w = openDelta[key]!;
+      if ('kVA' in w) units.push({ winding: key, kVA: w.kVA, ratedV: ll ?? ln, line: key.split('-').find((p) => p !== corner) as PhaseId });
+    }
   }
+  if (units.length) out.sourceUnits = units;
   if (zeroSequence) {
     const z1 = sourceImpedance(spec, ln, ll);
     const z0 = complex(zeroSequence.r, zeroSequence.x);

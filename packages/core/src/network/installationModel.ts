@@ -44,7 +44,7 @@ export function boardOfInstallation(installation: Installation, index: number): 
   const place = installation.subBoards.length > 0 ? { installation: { ...installation, main }, boardIndex: index } : undefined;
   if (index === 0) return place ? { ...main, installation: place } : main;
   const sb = installation.subBoards[index - 1]!;
-  const { sourceImpedances: _s, sourceStarImpedance: _z, openDeltaCorner: _o, lineImpedances: _l, lineRatingsA: _r, installation: _i, ...supply } = main;
+  const { sourceImpedances: _s, sourceStarImpedance: _z, openDeltaCorner: _o, sourceUnits: _u, lineImpedances: _l, lineRatingsA: _r, installation: _i, ...supply } = main;
   return {
     ...supply,
     name: sb.name,

@@ -1,5 +1,5 @@
 /** Report sections about the board itself: description, panel schedule, solved results, lost neutral. */
-import type { BoardBaseSpec, ImpedanceSpec, SystemKind } from '../../board/boardSchema.js';
+import type { BoardBaseSpec, ImpedanceSpec, SystemKind, WindingSpec } from '../../board/boardSchema.js';
 import { regionWords } from '../../board/conventions/regionWords.js';
 import { describeConductor, isPerPhaseLine } from '../../board/feederModel.js';
 
@@ -44,6 +44,13 @@ export function conductorWords(line: NonNullable<BoardBaseSpec['feeder']>['line'
   return parts.join(', ') || 'zero impedance';
 }
 
+/** Each unit of a bank or an open delta with its rating: `L1-L2 10 kVA, 3 %` (or its impedance where given in ohms). */
+function unitList(units: Partial<Record<string, WindingSpec>>, name: (key: string) => string): string {
+  return Object.entries(units)
+    .flatMap(([key, w]) => (w ? [`${name(key)} ${'kVA' in w ? `${w.kVA} kVA, ${w.impedancePercent} %` : `${w.r} + j${w.x} Ω`}`] : []))
+    .join('; ');
+}
+
 /** The supply in words: transformer, source impedance, bank or ideal; zero-sequence data when entered. */
 export function sourceWords(s: BoardBaseSpec['supply'], naming: PhaseNaming = 'A/B/C'): string {
   const base = s.transformer
@@ -51,9 +58,9 @@ export function sourceWords(s: BoardBaseSpec['supply'], naming: PhaseNaming = 'A
     : s.impedance
       ? `${impedanceWords(s.impedance, naming)}${'r' in s.impedance ? ' per phase' : ''}`
       : s.bank
-        ? 'a bank of single-phase units, one per phase'
+        ? `a bank of single-phase units, one per phase (${unitList(s.bank, (p) => `${labelIn(naming, p)}-N`)})`
         : s.openDelta
-          ? `an open delta of two single-phase units (${Object.keys(s.openDelta).map((pair) => labelIn(naming, pair)).join(' and ')})`
+          ? `an open delta of two single-phase units (${unitList(s.openDelta, (pair) => labelIn(naming, pair))})`
           : 'ideal (zero source impedance)';
   return s.zeroSequence ? `${base}; zero-sequence ${s.zeroSequence.r} + j${s.zeroSequence.x} Ω` : base;
 }

@@ -8,6 +8,8 @@ import type { InstallationBaseSpec } from '../../board/installationSchema.js';
 import type { InstallationBoardResult, InstallationResult } from '../../analysis/installationResult.js';
 import { boardSpecOf } from '../../board/installationRules.js';
 import { fixed } from '../svgText.js';
+import { sourceUnitsWords } from '../../analysis/sourceUnitsWords.js';
+import { labellerOf } from '../../board/conventions/phaseNames.js';
 import { renderOneLineDiagram } from '../renderOneLineDiagram.js';
 import type { ReportBlock, ReportColumn, ReportSection } from './reportDocument.js';
 import { conductorWords, resultBlocks, scheduleTable, sourceWords, systemFacts } from './boardSections.js';
@@ -143,6 +145,7 @@ export function totalsSection(result: InstallationResult): ReportSection {
   if (result.banksInService.length)
     items.push(['Capacitor banks in service', `${result.banksInService.map((b) => bankInServiceWords(b, b.deliveredKvar)).join('; ')} — ${BANKS_IN_SERVICE_BASIS}`]);
   if (main.transformer) items.push(['Supply transformer loading', `${fixed(main.transformer.loadingPercent, 0)} % of ${fixed(main.transformer.ratedKVA, 0)} kVA (most loaded line)`]);
+  if (main.sourceUnits) items.push(['Supply units loading', sourceUnitsWords(main.sourceUnits, labellerOf(main.conventions.phaseNames))]);
   items.push(['Warnings', warnings ? `${warnings}, listed under each board` : 'none']);
   return { id: 'totals', title: 'Installation totals', blocks: [{ kind: 'facts', items }] };
 }
