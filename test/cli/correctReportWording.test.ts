@@ -125,6 +125,31 @@ describe('correct report wording', () => {
     expect(reason(room)).toBeUndefined();
   });
 
+  it('a bank that meets the target but pushes the neutral past its rating says so in the verdict, and is not recommended over one that does not', () => {
+    // Larkspur Court's landlord board: the star bank puts 180 A on the 160 A neutral (137 A without it).
+    const { board } = boardOf('examples/larkspur-court-flats.yaml');
+    const star = correctBoard(board, { arrangement: 'star-bank' });
+    expect(star.status).toBe('meets-target');
+    expect(star.verification.overloadsCaused.map((o) => o.code)).toEqual(['neutral-over-rating']);
+    expect(star.verification.before.neutral!.current.magnitude).toBeLessThan(160);
+    expect(star.verification.after.neutral!.current.magnitude).toBeGreaterThan(160);
+    expect(star.summary).toMatch(/meets the target; but with it in, neutral current 18\d\.\d A exceeds the neutral rating of 160\.0 A$/);
+    expect(star.warnings.map((w) => w.code)).toContain('overload-caused');
+    // Said once: not also as "check the neutral against its rating".
+    expect(star.warnings.map((w) => w.code)).not.toContain('neutral-worse');
+    const text = runTrivar(['correct', `${ROOT}examples/larkspur-court-flats.yaml`, '--arrangement', 'star-bank']).stdout;
+    expect(text).toMatch(/^MEETS THE TARGET, BUT OVERLOADS WHAT FEEDS IT — star bank/m);
+    // The comparison: the cheaper star bank is passed over for the delta bank, and the reason says why.
+    const c = compareCorrections(board, {});
+    const figures = (a: string) => c.outcomes.find((o) => o.arrangement === a)!.figures!;
+    expect(figures('star-bank').cost).toBeLessThan(figures('delta-bank').cost);
+    expect(c.outcomes.find((o) => o.arrangement === 'delta-bank')!.report!.verification.overloadsCaused).toEqual([]);
+    expect(c.recommended).toBe('delta-bank');
+    expect(c.meetsTarget).toBe(true);
+    expect(c.why).toContain('star bank meets the target across the capacitance tolerance but overloads what feeds it (cost');
+    expect(c.why).toContain('with the star bank in, neutral current');
+  });
+
   it('a board whose bank does not change the balance notably gets no such note', () => {
     const { board } = boardOf('examples/riverside-cold-store.yaml');
     const r = correctBoard(board, { arrangement: 'star-bank' });

@@ -33,6 +33,9 @@ const VERDICT: Record<string, string> = {
   'no-suitable-units': 'no units fit',
 };
 
+/** Meets the target while it overloads what feeds the board (see compareCorrections' rule). */
+const overloading = (o: ArrangementOutcome): boolean => !!o.report && o.report.status.startsWith('meets') && o.report.verification.overloadsCaused.length > 0;
+
 function row(o: ArrangementOutcome, names: Readonly<Record<Arrangement, string>>): string[] {
   const name = names[o.arrangement] ?? o.arrangement;
   if (!o.report || !o.figures) return [name, 'not applicable', '', '', '', '', '', '', '', ''];
@@ -42,7 +45,7 @@ function row(o: ArrangementOutcome, names: Readonly<Record<Arrangement, string>>
   const partBuilt = built && o.report.status === 'no-suitable-units';
   return [
     name,
-    partBuilt ? 'part built' : (VERDICT[o.report.status] ?? o.report.status),
+    partBuilt ? 'part built' : overloading(o) ? 'overloads' : (VERDICT[o.report.status] ?? o.report.status),
     built ? fixed(f.deliveredKvar, 1) + (f.reactorKvar > 0 ? `+L${fixed(f.reactorKvar, 1)}` : '') : '-',
     built ? fixed(f.nameplateKvar, 1) : '-',
     built ? String(f.units) : '-',
@@ -88,7 +91,7 @@ export function renderComparisonReport(c: CorrectionComparison): string {
       ) +
       '\n' +
       [
-        `${names['star-bank'] === TWO_LINE_TABLE_NAMES['star-bank'] ? `${TWO_LINE_LEGEND}; ` : ''}delivered: kvar at the solved voltage (+L: reactor kvar); nom C: at nominal capacitance only;${c.outcomes.some((o) => o.report?.status === 'no-suitable-units' && (o.report.selection?.units ?? 0) > 0) ? ' part built: no unit suits some branches, the rest built without them;' : ''} plate: nameplate kvar; PF after: the PF the target is defined on (per-line: the lowest line); neutral: A after; loss: source + feeder after`,
+        `${names['star-bank'] === TWO_LINE_TABLE_NAMES['star-bank'] ? `${TWO_LINE_LEGEND}; ` : ''}delivered: kvar at the solved voltage (+L: reactor kvar); nom C: at nominal capacitance only;${c.outcomes.some((o) => o.report?.status === 'no-suitable-units' && (o.report.selection?.units ?? 0) > 0) ? ' part built: no unit suits some branches, the rest built without them;' : ''}${c.outcomes.some(overloading) ? ' overloads: meets the target, but with it in a conductor or the supply is above its rating (see Recommendation);' : ''} plate: nameplate kvar; PF after: the PF the target is defined on (per-line: the lowest line); neutral: A after; loss: source + feeder after`,
         ...c.outcomes.filter((o) => o.notApplicable).map((o) => `${arrangementNames(system)[o.arrangement]}: ${o.notApplicable}`),
       ]
         .map((l) => wrapText(l, '  ', '    '))

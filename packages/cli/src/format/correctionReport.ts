@@ -15,6 +15,12 @@ const STATUS_WORDS: Record<string, string> = {
   infeasible: 'TARGET NOT REACHABLE with this arrangement',
 };
 
+/** The verdict in capitals: a build that meets the target while it overloads what it is connected to says both. */
+function headline(r: CorrectionReport): string {
+  const words = r.status === 'no-suitable-units' && (r.selection?.units ?? 0) > 0 ? 'NO SUITABLE UNITS for part of this arrangement' : (STATUS_WORDS[r.status] ?? r.status);
+  return r.verification.overloadsCaused.length && r.status.startsWith('meets') ? `${words}, BUT OVERLOADS WHAT FEEDS IT` : words;
+}
+
 const arrow = (x: BeforeAfter, digits: number, unit = '') => `${fixed(x.before, digits)}${unit} → ${fixed(x.after, digits)}${unit}`;
 const senseWord = (s: string) => (s === 'lagging' ? 'lag' : s === 'leading' ? 'lead' : '');
 const indentLines = (lines: readonly string[]) => lines.map((l) => wrapText(l, '  ', '    ')).join('\n');
@@ -389,7 +395,7 @@ export function renderCorrectionReport(r: CorrectionReport): string {
     wrapText(`correction: ${arrangementDescriptions(v.before.board.system)[r.arrangement]}`, '', '  '),
     wrapText(`target: ${targetWords(r)}`, '', '  '),
     '',
-    wrapText(`${r.status === 'no-suitable-units' && (r.selection?.units ?? 0) > 0 ? 'NO SUITABLE UNITS for part of this arrangement' : (STATUS_WORDS[r.status] ?? r.status)} — ${r.summary}`, '', '  '),
+    wrapText(`${headline(r)} — ${r.summary}`, '', '  '),
     ...r.reasons.map((x) => wrapText(x, '  - ', '    ')),
     ...balanceLine(r).map((x) => wrapText(x, '  ', '    ')),
   ];

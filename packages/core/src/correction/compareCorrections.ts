@@ -5,7 +5,8 @@
  *
  * Recommendation rule (common practice, no source): first what meets the
  * target across the capacitance tolerance, then at nominal capacitance, then
- * nothing to do; among those the least cost (the unit choice's cost, plus a
+ * nothing to do, and after all of those what meets the target but overloads a
+ * conductor or the supply that was not overloaded without it; among those the least cost (the unit choice's cost, plus a
  * reactor at twice the cost of a capacitor of the same kvar); costs within 5 %
  * count as equal and the lower losses after correction decide. Where nothing
  * meets the target, the arrangement that comes closest is named, and why.
@@ -115,6 +116,9 @@ const STATUS_RANK: Record<CorrectionStatus, number> = {
   'no-suitable-units': 4,
 };
 
+/** Where a build that meets the target but overloads a conductor or the supply ranks: after every one that meets it without, before a miss. */
+const OVERLOAD_RANK = 1.5;
+
 /**
  * Sizes, builds and verifies every arrangement that fits the board, and recommends one.
  * @param board a normalised board
@@ -152,10 +156,15 @@ export function recommendArrangement(outcomes: readonly ArrangementOutcome[], am
   const studied = outcomes.filter((o): o is ArrangementOutcome & { report: CorrectionReport; figures: ArrangementFigures } => o.report !== null && o.figures !== null);
   const candidates = among === undefined ? studied : studied.filter((o) => among.includes(o.arrangement));
   if (!candidates.length) return { recommended: null, meetsTarget: false, why: comparisonWording.noneStudied, rule: comparisonWording.rule };
-  const rank = (o: (typeof studied)[number]) => STATUS_RANK[o.report.status];
+  // Meeting the target while overloading what feeds the board ranks after every build that meets it without.
+  const overloads = (o: (typeof studied)[number]) => o.report.verification.overloadsCaused.length > 0;
+  const rank = (o: (typeof studied)[number]) => {
+    const r = STATUS_RANK[o.report.status];
+    return r <= 1 && overloads(o) ? OVERLOAD_RANK + r / 10 : r;
+  };
   const bestRank = Math.min(...candidates.map(rank));
   const pool = candidates.filter((o) => rank(o) === bestRank);
-  const meetsTarget = bestRank <= 1;
+  const meetsTarget = bestRank < STATUS_RANK['misses-target-with-available-units'];
   const cheapest = Math.min(...pool.map((o) => o.figures.cost));
   // Meeting the target: least cost, then losses. Missing it: the one that comes closest.
   const closeness = (o: (typeof studied)[number]) => o.figures.targetPfAfter ?? -Infinity;
@@ -169,14 +178,18 @@ export function recommendArrangement(outcomes: readonly ArrangementOutcome[], am
     names[chosen.arrangement],
     chosen.report.status,
     chosen.figures,
-    others.map((o) => ({ name: names[o.arrangement], status: o.report.status, cost: o.figures.cost, lossesKW: o.figures.lossesKW })),
+    others.map((o) => ({ name: names[o.arrangement], status: o.report.status, cost: o.figures.cost, lossesKW: o.figures.lossesKW, overloads: overloads(o) })),
     meetsTarget && near.length > 1,
   );
   // A verdict never hides that an arrangement makes the balance notably worse (see balanceWorsening).
   const worse = [chosen, ...others].flatMap((o) => {
-    const changes = balanceWorsening(o.report.verification.before, o.report.verification.after);
+    // A neutral the arrangement overloads is said once, with the overloads below.
+    const neutralOverloaded = o.report.verification.overloadsCaused.some((x) => x.code === 'neutral-over-rating');
+    const changes = balanceWorsening(o.report.verification.before, o.report.verification.after).filter((c) => !(neutralOverloaded && c.code === 'neutral-worse'));
     return changes.length ? [comparisonWording.balanceWorse(names[o.arrangement], o === chosen, changes)] : [];
   });
-  const whyAll = worse.length ? `${why}; ${worse.join('; ')}` : why;
+  const overloaded = [chosen, ...others].flatMap((o) => (overloads(o) ? [comparisonWording.overloads(names[o.arrangement], o === chosen, o.report.verification.overloadsCaused.map((x) => x.message))] : []));
+  const notes = [...overloaded, ...worse];
+  const whyAll = notes.length ? `${why}; ${notes.join('; ')}` : why;
   return { recommended: chosen.arrangement, meetsTarget, why: whyAll, rule: comparisonWording.rule };
 }

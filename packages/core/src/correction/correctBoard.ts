@@ -306,7 +306,10 @@ export function correctBoard(board: Board, spec: unknown): CorrectionReport {
         ? reportSummary[status](what)
         : status === 'no-suitable-units'
           ? reportSummary[status](what, delivered, nameplate, (selection?.unbuildable?.branches ?? []).map(label))
-          : reportSummary[status](what, delivered, nameplate)) + reactorWords(recommended, label),
+          : reportSummary[status](what, delivered, nameplate)) +
+      reactorWords(recommended, label) +
+      // Meeting the PF target says nothing of what the equipment overloads: the summary says it beside the verdict.
+      (verification.overloadsCaused.length ? `; but with it in, ${verification.overloadsCaused.map((o) => o.message).join('; ')}` : ''),
     reasons,
     target,
     sizing,

@@ -433,6 +433,11 @@ export interface CorrectionVerification {
   /** Parallel resonance with the supply, h_r = √(S_sc/Qc); null on an ideal source or without capacitors. */
   readonly resonanceOrder: number | null;
   readonly lightLoad: LightLoadCheck | null;
+  /**
+   * What the equipment overloads that was not overloaded without it (a line, the neutral, the supply
+   * transformer or one of its units), each in words as the board's own warning says it; empty when nothing.
+   */
+  readonly overloadsCaused: readonly { readonly code: string; readonly message: string }[];
   readonly warnings: readonly CorrectionWarning[];
   /**
    * Present when the target is measured away from the equipment's board (`target.measuredAt`): the

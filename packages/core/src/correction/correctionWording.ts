@@ -152,8 +152,15 @@ export const warningText = {
   reactorsNotSelected: 'reactors are given as continuous values only (kvar, mH); choosing reactor hardware is not part of this study',
   unbalanceWorse: (before: number, after: number, points: number) =>
     `the equipment makes the current unbalance worse: |I2|/|I1| rises from ${f1(before)} % to ${f1(after)} % (flagged above a rise of ${points} percentage points); the supply transformer and upstream motors carry the extra negative-sequence current`,
-  neutralWorse: (before: number, after: number) =>
-    `the equipment raises the neutral current from ${f1(before)} A to ${f1(after)} A (flagged above a rise of 10 % and 1 A): check the neutral conductor against its rating`,
+  neutralWorse: (before: number, after: number, ratingA: number | null) =>
+    `the equipment raises the neutral current from ${f1(before)} A to ${f1(after)} A (flagged above a rise of 10 % and 1 A): ${
+      ratingA === null
+        ? 'check the neutral conductor against its rating (none is given in the file)'
+        : after > ratingA
+          ? `above the neutral's ${f1(ratingA)} A rating, as it already was without the equipment, and further now`
+          : `within the neutral's ${f1(ratingA)} A rating, with less margin`
+    }`,
+  overloadCaused: (boardWords: string) => `with the equipment in, ${boardWords}; without it this does not happen — a larger conductor or supply, or another arrangement, is needed before this equipment is installed`,
   idealSource: 'the source impedance is zero, so the steady voltage rise and the resonance order cannot be estimated',
 };
 
@@ -320,13 +327,13 @@ const STATUS_SHORT: Record<string, string> = {
 };
 
 export const comparisonWording = {
-  rule: 'first an arrangement that meets the target across the capacitance tolerance, then at nominal capacitance; among those the least cost (nameplate kvar + 2 kvar-equivalent per unit, a reactor counted at twice its kvar); costs within 5 % are equal and the lower losses decide',
+  rule: 'first an arrangement that meets the target across the capacitance tolerance, then at nominal capacitance, then one that meets it but overloads a conductor or the supply; among those the least cost (nameplate kvar + 2 kvar-equivalent per unit, a reactor counted at twice its kvar); costs within 5 % are equal and the lower losses decide',
   noneStudied: 'no arrangement could be studied with these settings',
   why: (
     name: string,
     status: string,
     f: { cost: number; lossesKW: number },
-    others: readonly { name: string; status: string; cost: number; lossesKW: number }[],
+    others: readonly { name: string; status: string; cost: number; lossesKW: number; overloads: boolean }[],
     tieOnCost: boolean,
   ) => {
     // Nothing bought (no unit, no reactor) has no cost to quote: say so in words instead of "cost 0.0".
@@ -343,10 +350,19 @@ export const comparisonWording = {
             : `${name}: the only arrangement studied ${STATUS_SHORT[status]}`;
     if (status === 'already-meets-target') return head;
     const rest = others.map((o) =>
-      o.status !== status ? `${o.name} ${STATUS_SHORT[o.status]}` : nothingAdded(o.cost) ? `${o.name} also adds nothing` : `${o.name} costs ${o.cost.toFixed(1)}`,
+      o.overloads
+        ? `${o.name} ${STATUS_SHORT[o.status]} but overloads what feeds it${nothingAdded(o.cost) ? '' : ` (cost ${o.cost.toFixed(1)})`}`
+        : o.status !== status
+          ? `${o.name} ${STATUS_SHORT[o.status]}`
+          : nothingAdded(o.cost)
+            ? `${o.name} also adds nothing`
+            : `${o.name} costs ${o.cost.toFixed(1)}`,
     );
     return rest.length ? `${head}; ${rest.join('; ')}` : head;
   },
+  /** What a compared arrangement overloads, said beside the recommendation. */
+  overloads: (name: string, recommended: boolean, messages: readonly string[]) =>
+    `${recommended ? 'note: no arrangement meets the target without an overload; with the recommended' : 'with the'} ${name} in, ${messages.join('; ')}`,
   /** What a compared arrangement makes notably worse, said beside the recommendation. */
   balanceWorse: (name: string, recommended: boolean, changes: readonly { code: string; before: number; after: number }[]) =>
     `${recommended ? 'note: the recommended' : 'the'} ${name} ${changes

@@ -6,7 +6,7 @@
  */
 import * as z from 'zod';
 import type { Board, PhaseId } from '../board/boardModel.js';
-import type { BoardResult } from '../analysis/boardResult.js';
+import type { BoardResult, BoardWarning } from '../analysis/boardResult.js';
 import { analyseSolution, readTargetFigures, type TargetReadings } from '../analysis/analyseSolution.js';
 import { compileBoard, solveCompiledBoard, solveNetwork, type NetworkSolution, type SolveOptions } from '../network/solveNetwork.js';
 import { resolveSolveOptions } from '../network/solveOptions.js';
@@ -126,6 +126,20 @@ function equipmentValueSolver(corrected: Board, baseLoads: number, options: Solv
   };
 }
 
+/** The board's own overload warnings: a conductor, the supply transformer or one of its units above its rating. */
+const OVERLOAD_CODES: ReadonlySet<string> = new Set(['line-over-rating', 'neutral-over-rating', 'transformer-overload', 'source-unit-overload']);
+
+/**
+ * Overload warnings the equipped board has that the board without the equipment did not: matched by
+ * code and subject (the words with their figures taken out, so "line B carries 87 A" before and
+ * "line B carries 93 A" after is the same overload, not a new one).
+ */
+function overloadsCaused(before: BoardResult, after: BoardResult): BoardWarning[] {
+  const subject = (w: BoardWarning) => `${w.code}:${w.message.replace(/[\d.,]+/g, '#')}`;
+  const had = new Set(before.warnings.filter((w) => OVERLOAD_CODES.has(w.code)).map(subject));
+  return after.warnings.filter((w) => OVERLOAD_CODES.has(w.code) && !had.has(subject(w)));
+}
+
 export function verifyCorrection(board: Board, options: VerifyCorrectionOptions): CorrectionVerification {
   const opts = parseOptions(verifyOptionsSchema, options, 'verifyCorrection options');
   const arrangement = opts.arrangement ?? 'star-bank';
@@ -171,8 +185,11 @@ export function verifyCorrection(board: Board, options: VerifyCorrectionOptions)
   const resonanceOrder = ssc !== null && capacitorKvar > 0 ? Math.sqrt(ssc / (capacitorKvar * 1000)) : null;
   if (resonanceOrder !== null && WATCHED_ORDERS.some((h) => Math.abs(resonanceOrder - h) <= 0.1 * h)) warn('resonance', warningText.lowResonance(resonanceOrder), resonanceOrder, null);
   if (ssc === null && capacitorKvar > 0) warn('ideal-source', warningText.idealSource);
+  const overloads = overloadsCaused(before, after);
+  for (const o of overloads) warn('overload-caused', warningText.overloadCaused(o.message), o.value, o.threshold);
   for (const w of balanceWorsening(before, after))
-    warn(w.code, w.code === 'unbalance-worse' ? warningText.unbalanceWorse(w.before, w.after, w.threshold) : warningText.neutralWorse(w.before, w.after), w.after, w.threshold);
+    if (!(w.code === 'neutral-worse' && overloads.some((o) => o.code === 'neutral-over-rating')))
+      warn(w.code, w.code === 'unbalance-worse' ? warningText.unbalanceWorse(w.before, w.after, w.threshold) : warningText.neutralWorse(w.before, w.after, after.neutral?.ratingA ?? null), w.after, w.threshold);
 
   let lightLoad: LightLoadCheck | null = null;
   if (opts.lightLoad) {
@@ -257,6 +274,7 @@ export function verifyCorrection(board: Board, options: VerifyCorrectionOptions)
     voltageRise: rise,
     resonanceOrder,
     lightLoad,
+    overloadsCaused: overloads.map((o) => ({ code: o.code, message: o.message })),
     warnings,
     ...(metering ? { metering } : {}),
   };
