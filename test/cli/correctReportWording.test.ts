@@ -150,6 +150,22 @@ describe('correct report wording', () => {
     expect(c.why).toContain('with the star bank in, neutral current');
   });
 
+  it('a board that only exports, at unity PF, has nothing to add (exit 0), and its board PFs read "export", not a negative PF', () => {
+    // A barn roof's PV array on a farm supply (invented), nothing else on the board.
+    const dir = mkdtempSync(join(tmpdir(), 'trivar-export-'));
+    const file = join(dir, 'barn-roof.yaml');
+    writeFileSync(file, 'name: Barn roof PV\nsupply: { voltage: 400/230, frequencyHz: 50, transformer: { kVA: 100, impedancePercent: 4, xOverR: 3 } }\nloads:\n  - { name: PV array, connection: ABC-star, kW: -30 }\n');
+    const r = runTrivar(['correct', file]);
+    expect(r.code).toBe(0);
+    expect(r.stdout).toMatch(/^NOTHING TO DO: the board already meets the target/m);
+    expect(r.stdout).toContain('the board exports active power, and every figure the target reads already meets it');
+    expect(r.stdout).toContain('PF vector 1.000 export');
+    expect(r.stdout).not.toMatch(/-1\.000/);
+    // The balancing compensator's positive-sequence target reads the size of an exporting board's PF too.
+    const { board } = { board: normaliseBoard(parseBoard(readBoardText(readFileSync(file, 'utf8')))) };
+    expect(correctBoard(board, { arrangement: 'balancing-compensator' }).status).toBe('already-meets-target');
+  });
+
   it('a board whose bank does not change the balance notably gets no such note', () => {
     const { board } = boardOf('examples/riverside-cold-store.yaml');
     const r = correctBoard(board, { arrangement: 'star-bank' });

@@ -5,6 +5,7 @@ import { fixed, renderTable, section } from './textTable.js';
 import { headerLines } from './solveReport.js';
 import { renderCorrectionReport, renderNothingToAdd } from './correctionReport.js';
 import { wrapText } from './wrapText.js';
+import { boardPfText } from './powerFlowWords.js';
 
 const TWO_LINE_TABLE_NAMES = { 'star-bank': 'L-N bank', 'delta-bank': 'L-L bank' } as const;
 const TWO_LINE_LEGEND = 'L-N bank: capacitors from each line to the neutral; L-L bank: capacitors across the two lines';
@@ -50,7 +51,7 @@ function row(o: ArrangementOutcome, names: Readonly<Record<Arrangement, string>>
     built ? fixed(f.nameplateKvar, 1) : '-',
     built ? String(f.units) : '-',
     built ? String(f.switchedSteps) : '-',
-    f.targetPfAfter === null ? '-' : fixed(f.targetPfAfter, 3),
+    f.targetPfAfter === null ? '-' : boardPfText(f.targetPfAfter),
     f.neutralCurrentA === null ? '-' : fixed(f.neutralCurrentA, 1),
     f.negativeSequencePercent === null ? '-' : fixed(f.negativeSequencePercent, 1),
     fixed(f.lossesKW, 3),

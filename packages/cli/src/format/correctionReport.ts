@@ -4,6 +4,7 @@ import { fixed, renderTable, section } from './textTable.js';
 import { headerLines } from './solveReport.js';
 import { wrapText } from './wrapText.js';
 import { meteringSection } from './meteringSection.js';
+import { boardPfText } from './powerFlowWords.js';
 
 
 const STATUS_WORDS: Record<string, string> = {
@@ -22,6 +23,7 @@ function headline(r: CorrectionReport): string {
 }
 
 const arrow = (x: BeforeAfter, digits: number, unit = '') => `${fixed(x.before, digits)}${unit} → ${fixed(x.after, digits)}${unit}`;
+const pfArrow = (x: BeforeAfter) => `${boardPfText(x.before)} → ${boardPfText(x.after)}`;
 const senseWord = (s: string) => (s === 'lagging' ? 'lag' : s === 'leading' ? 'lead' : '');
 const indentLines = (lines: readonly string[]) => lines.map((l) => wrapText(l, '  ', '    ')).join('\n');
 /** Phases, pairs and branches as the board file names them (L1-L2 or A-B); the study's data keys stay A/B/C. */
@@ -197,10 +199,10 @@ const signed = (x: number, digits: number, unit: string, good: string, bad: stri
 function boardLines(v: CorrectionVerification): string {
   const out: string[] = [];
   const pf = v.powerFactor;
-  if (pf.effective) out.push(`PF effective (IEEE 1459)     ${arrow(pf.effective, 3)}`);
-  out.push(`PF vector                    ${arrow(pf.vector, 3)}`);
-  out.push(`PF arithmetic                ${arrow(pf.arithmetic, 3)}`);
-  if (pf.positiveSequence) out.push(`PF positive sequence         ${arrow(pf.positiveSequence, 3)}`);
+  if (pf.effective) out.push(`PF effective (IEEE 1459)     ${pfArrow(pf.effective)}`);
+  out.push(`PF vector                    ${pfArrow(pf.vector)}`);
+  out.push(`PF arithmetic                ${pfArrow(pf.arithmetic)}`);
+  if (pf.positiveSequence) out.push(`PF positive sequence         ${pfArrow(pf.positiveSequence)}`);
   if (v.neutralCurrentA) out.push(`neutral current              ${arrow(v.neutralCurrentA, 1, ' A')}`);
   if (v.unbalance) {
     out.push(`|I2|/|I1|                    ${arrow(v.unbalance.negativeSequenceCurrentPercent, 1, ' %')}`);
@@ -361,10 +363,10 @@ export function renderNothingToAdd(r: CorrectionReport, studied: string): string
   const board = idle
     ? ['no line current, so no power factor']
     : [
-        ...(pf.effective ? [`PF effective (IEEE 1459) ${fixed(pf.effective.before, 3)}`] : []),
-        `PF vector ${fixed(pf.vector.before, 3)}`,
-        `PF arithmetic ${fixed(pf.arithmetic.before, 3)}`,
-        ...(pf.positiveSequence ? [`PF positive sequence ${fixed(pf.positiveSequence.before, 3)}`] : []),
+        ...(pf.effective ? [`PF effective (IEEE 1459) ${boardPfText(pf.effective.before)}`] : []),
+        `PF vector ${boardPfText(pf.vector.before)}`,
+        `PF arithmetic ${boardPfText(pf.arithmetic.before)}`,
+        ...(pf.positiveSequence ? [`PF positive sequence ${boardPfText(pf.positiveSequence.before)}`] : []),
       ];
   if (v.neutralCurrentA) board.push(`neutral ${fixed(v.neutralCurrentA.before, 1)} A`);
   const parts = [

@@ -2,16 +2,18 @@
 import { meteringPointWords, type BeforeAfter, type MeteringReadings } from '@trivar/core';
 import { fixed, section } from './textTable.js';
 import { wrapText } from './wrapText.js';
+import { boardPfText } from './powerFlowWords.js';
 
 const arrow = (x: BeforeAfter, digits: number, unit = '') => `${fixed(x.before, digits)}${unit} → ${fixed(x.after, digits)}${unit}`;
+const pfArrow = (x: BeforeAfter) => `${boardPfText(x.before)} → ${boardPfText(x.after)}`;
 
 /** `lines`: the per-line table, rendered as the board's own lines are. */
 export function meteringSection(m: MeteringReadings, lines: string): string {
   const pf = m.powerFactor;
   const rows = [
-    ...(pf.effective ? [`PF effective (IEEE 1459)     ${arrow(pf.effective, 3)}`] : []),
-    `PF vector                    ${arrow(pf.vector, 3)}`,
-    ...(pf.positiveSequence ? [`PF positive sequence         ${arrow(pf.positiveSequence, 3)}`] : []),
+    ...(pf.effective ? [`PF effective (IEEE 1459)     ${pfArrow(pf.effective)}`] : []),
+    `PF vector                    ${pfArrow(pf.vector)}`,
+    ...(pf.positiveSequence ? [`PF positive sequence         ${pfArrow(pf.positiveSequence)}`] : []),
     `through it                   ${arrow(m.kW, 2, ' kW')}, ${arrow(m.kvar, 2, ' kvar')} (+ lagging)`,
   ];
   return (

@@ -32,3 +32,6 @@ export function exportSentence(who: string, r: Pick<PowerReading, 'kW' | 'kvar'>
   const vars = varWords(r.kvar);
   return `${who} ${verb} ${fixed(-r.kW, 2)} kW ${vars === 'no reactive power' ? 'at unity power factor' : `and ${vars}`}.`;
 }
+
+/** A board-wide PF, signed like P: an exporting board's reads as its size and "export", as a line's PF cell does. */
+export const boardPfText = (pf: number): string => (fixed(pf, 3).startsWith('-') ? `${fixed(-pf, 3)} export` : fixed(pf, 3));

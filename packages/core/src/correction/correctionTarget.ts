@@ -192,8 +192,10 @@ export function checkTarget(result: TargetReadings, target: ResolvedTarget, befo
   let board: TargetCheck['board'] = null;
   if (target.definition !== 'per-line') {
     const pf = boardPowerFactor(result, target.definition);
-    const reached = pf !== null && pf >= target.pf - TARGET_SLACK;
-    const notPast = pf === null || target.maxLaggingPf === null || pf <= target.maxLaggingPf + TARGET_SLACK;
+    // Signed like P: an exporting board's PF is negative, and its size is what a target speaks of (as |P| per line).
+    const size = pf === null ? null : Math.abs(pf);
+    const reached = size !== null && size >= target.pf - TARGET_SLACK;
+    const notPast = size === null || target.maxLaggingPf === null || size <= target.maxLaggingPf + TARGET_SLACK;
     if (!reached) shortfalls.push(targetShortfall.boardBelow(target, pf));
     if (!notPast) shortfalls.push(targetShortfall.boardBeyond(target, pf));
     board = { definition: target.definition, pf, minPf: target.pf, maxPf: target.maxLaggingPf, met: reached && notPast };

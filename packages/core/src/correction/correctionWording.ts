@@ -82,6 +82,7 @@ export const infeasibleReason = {
   alreadyLeading: (phases: readonly PhaseLabel[]) =>
     `line${phases.length > 1 ? 's' : ''} ${phases.join(', ')} already lead${phases.length > 1 ? '' : 's'} before correction: capacitors cannot help there, a reactor would be needed`,
   exporting: 'the board exports active power, so a power-factor target has no meaning for it',
+  exportingMet: 'the board exports active power, and every figure the target reads already meets it (per line: the size of Q against |P|)',
   noLoad: 'the board draws no active power (every load is zero or off), so there is nothing to correct',
   capacitorsCannotReach: (shortfalls: readonly string[]) =>
     `no capacitor-only bank of this arrangement meets the target without breaking a bound; even sized exactly (before units are chosen) the best it reaches leaves: ${shortfalls.join('; ')}`,

@@ -100,7 +100,9 @@ export function sizeBank(board: Board, arrangement: BankSizing['arrangement'], s
 
   const perLine = target.definition === 'per-line';
   const method = perLine ? sizingMethod.perLine : options.share === 'equal' ? sizingMethod.equal(target.definition) : sizingMethod.proportional(target.definition);
-  if (start.result.totals.kW < 0) return finish(start, null, method, { status: 'infeasible', reasons: [infeasibleReason.exporting] });
+  // An exporting board that already meets the target (a PV array at unity PF) has nothing to add; one that does not gets no bank sized for it.
+  if (start.result.totals.kW < 0)
+    return finish(start, null, method, checkBefore.met ? { status: 'already-meets-target', reasons: [infeasibleReason.exportingMet] } : { status: 'infeasible', reasons: [infeasibleReason.exporting] });
   // Nothing drawn, nothing to correct: the verdict the balancing compensator gives the same board (it was 'not reachable').
   if (start.result.totals.kW === 0) return finish(start, null, method, { status: 'already-meets-target', reasons: [infeasibleReason.noLoad] });
   // The limit (most compensation before a line passes its upper bound) is wanted
