@@ -186,7 +186,9 @@ describe('symmetrical components', () => {
         expectComplexClose(cAdd(cAdd(got.zero, got.positive), got.negative), ia, tol, 'I0 + I1 + I2 = Ia');
         if (result.neutral) expectComplexClose(result.neutral.current, cScale(i0, 3), { rel: LAW_REL, abs: LAW_REL * largestCurrent(solution) }, 'I_N = 3·I0');
         else expectComplexClose(i0, C0, { rel: 0, abs: LAW_REL * largestCurrent(solution) }, 'no I0 without a neutral');
-        const ratio = cAbs(i1) === 0 ? 0 : (100 * cAbs(i2)) / cAbs(i1);
+        // A positive-sequence current at round-off (loads that cancel, such as an export and a draw of the same kW)
+        // is read as none, and so is the ratio: a ratio of two round-offs (1e17 %) is not data.
+        const ratio = cAbs(i1) <= tol.abs ? 0 : (100 * cAbs(i2)) / cAbs(i1);
         expectClose(result.unbalance!.currentNegativePercent, ratio, { rel: 1e-9, abs: 1e-9 }, '|I2|/|I1| %');
       }),
     );

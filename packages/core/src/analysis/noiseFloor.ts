@@ -9,6 +9,7 @@
  */
 import { abs, add, ZERO, type ComplexValue } from '../complex.js';
 import type { NetworkSolution } from '../network/solveNetwork.js';
+import { NEGLIGIBLE_OHMS } from '../network/installationCircuit.js';
 
 /** Fraction of the board's largest current below which a current is zero: far above LU round-off (~1e-15), far below anything measurable. */
 export const NOISE_FLOOR_RELATIVE = 1e-9;
@@ -16,10 +17,10 @@ export const NOISE_FLOOR_RELATIVE = 1e-9;
 /** Resolution of a conductor's current as a fraction of nominal voltage × its admittance (1000 × double round-off). */
 export const CONDUCTOR_RESOLUTION = 1e-13;
 
-/** 1/|Z| of the stiffest series conductor (source + line, neutral); 0 when every one is ideal (no round-off through it). */
+/** 1/|Z| of the stiffest series conductor (source + line, neutral); 0 when every one is ideal or merged as a direct connection (no round-off through it). */
 function stiffestAdmittance(board: NetworkSolution['board']): number {
   const paths = [add(board.sourceImpedance, board.lineImpedance), board.neutralImpedance];
-  return Math.max(0, ...paths.map((z) => (abs(z) > 0 ? 1 / abs(z) : 0)));
+  return Math.max(0, ...paths.map((z) => (abs(z) >= NEGLIGIBLE_OHMS ? 1 / abs(z) : 0)));
 }
 
 /** The current below which a solution's currents are round-off, A. */

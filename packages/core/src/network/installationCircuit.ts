@@ -32,7 +32,15 @@ export interface InstallationCircuit {
   readonly mainSources: readonly number[];
 }
 
-const isZero = (z: ComplexValue) => abs(z) === 0;
+/**
+ * An impedance below a microhm is a direct connection: its nodes are merged. Kept as an element, its
+ * admittance (1e6 S and up, beside loads of a few siemens) leaves the solve's round-off above the load
+ * iteration's tolerance (a 0.001 ft feeder would not settle) or makes the matrix singular, while the
+ * voltage it drops is at most a milliohm's thousandth of a volt per kiloampere (common practice, no source).
+ */
+export const NEGLIGIBLE_OHMS = 1e-6;
+
+const isZero = (z: ComplexValue) => abs(z) < NEGLIGIBLE_OHMS;
 
 /** Per-phase source impedance of the main board (falls back to the equal short form). */
 export const sourceImpedanceOf = (board: Board, k: number): ComplexValue => board.sourceImpedances?.[k] ?? board.sourceImpedance;
