@@ -24,6 +24,10 @@ describe('region wording', () => {
     expect(text).not.toMatch(/centre/);
     expect(text).toMatch(/grounded conductor \(neutral\)/);
     expect(r.openNeutral?.cautions.join(' ')).not.toMatch(IEC_TERMS);
+    // Its two lines are not phases: a line-to-neutral voltage outside the limits is named A-N, never "phase A".
+    const voltage = r.warnings.filter((w) => w.message.includes('at the board is'));
+    expect(voltage.map((w) => w.message.split(' at the board')[0])).toEqual(['line-to-neutral A-N']);
+    expect(text).not.toMatch(/\bphase [AB]\b/);
   });
 
   it('the split-phase report (HTML/Markdown) floats the bar from the center tap, and has no three-phase lead/lag note', () => {

@@ -33,7 +33,12 @@ export function boardVoltagePoints(
   hasNeutral: boolean,
   label: (phaseOrPair: string) => string,
 ): (VoltageExtreme & { readonly volts: number })[] {
-  const own = hasNeutral || lineToLine.length === 0 ? phases.map((p) => ({ percent: p.voltagePercent, at: `phase ${label(p.phase)}`, volts: p.voltage.magnitude })) : [];
+  // A split-phase board's two lines are not phases: its line-to-neutral voltages are named L1-N, L2-N.
+  const splitPhase = hasNeutral && phases.length === 2;
+  const own =
+    hasNeutral || lineToLine.length === 0
+      ? phases.map((p) => ({ percent: p.voltagePercent, at: splitPhase ? `line-to-neutral ${label(p.phase)}-N` : `phase ${label(p.phase)}`, volts: p.voltage.magnitude }))
+      : [];
   return [...own, ...lineToLine.map((l) => ({ percent: l.voltagePercent, at: `line-to-line ${label(l.pair)}`, volts: l.voltage.magnitude }))];
 }
 
