@@ -37,6 +37,12 @@ describe('region wording', () => {
     expect(md).toMatch(/The neutral bar would float to [\d.]+ V from the transformer center tap\./);
     expect(md).not.toMatch(IEC_TERMS);
     expect(renderSolveReport(result)).not.toMatch(/one line leads, the other lags/);
+    // The current convention counts its two lines; a 3-wire board's sums to zero (no neutral).
+    expect(md).toContain('so the two line currents add up to the neutral current');
+    expect(md).not.toContain('three line currents');
+    const threeWire = parseBoard({ name: 'mill', supply: { system: 'three-phase-3wire', voltage: { lineToLine: 400 }, frequencyHz: 50 }, loads: [{ name: 'saw', connection: 'A-B', kW: 3 }] });
+    const md3 = renderReportMarkdown(buildBoardReport({ spec: threeWire, result: solveBoardModel(normaliseBoard(threeWire)) }), 'r').markdown;
+    expect(md3).toContain('(the board has no neutral, so the three line currents add up to zero)');
   });
 
   it('an IEC board keeps PEN and TN-C-S and never speaks of a center tap or grounded conductor', () => {

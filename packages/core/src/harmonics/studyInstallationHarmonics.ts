@@ -134,7 +134,11 @@ function installationAssumptions(main: Board, models: readonly HarmonicModel[], 
   const merged: HarmonicModel = { ...base, loads: models.flatMap((m) => m.loads), bank: (scannedBoard === undefined ? null : base.bank) ?? models.find((m) => m.bank)?.bank ?? null };
   return [
     ...assumptions(main, merged, banks.length > 1),
-    'sub-board feeders per conductor like the service feeder (line and neutral); each feeder neutral carries its boards’ zero-sequence (triplen) current back towards the source',
+    main.system === 'split-phase'
+      ? `sub-board feeders per conductor like the service feeder (line and neutral); each feeder neutral carries the difference of its two line currents at every order back towards ${regionWords(conventionsOf(main).region, main.system).sourceNeutralPoint}`
+      : main.hasNeutral
+        ? 'sub-board feeders per conductor like the service feeder (line and neutral); each feeder neutral carries its boards’ zero-sequence (triplen) current back towards the source'
+        : 'sub-board feeders per conductor like the service feeder; with no neutral, triplen currents of a balanced set have no path and only unbalance lets them flow in the lines',
     ...(banks.length > 1 ? [harmonicsAssumptionText.jointScan, ...scans.flatMap((s) => (s.jointScan && s.jointScan.coverage !== 'every step combination' ? [harmonicsAssumptionText.jointScanReduced(s.board, s.jointScan)] : []))] : []),
   ];
 }

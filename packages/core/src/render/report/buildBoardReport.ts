@@ -15,7 +15,8 @@ import { handCheckSection } from './handCheckSection.js';
 import type { ReportDocument, ReportSection } from './reportDocument.js';
 import { installationSection, openNeutralSection, resultsSection, scheduleSection } from './boardSections.js';
 import { correctionSection, nothingToAdd, resonanceSection } from './correctionSection.js';
-import { BOARD_STANDARDS, CORRECTION_ASSUMPTIONS, CORRECTION_STANDARDS, MODEL_ASSUMPTIONS, THREE_PHASE_STANDARDS } from './reportWording.js';
+import { labelIn } from '../../board/conventions/phaseNames.js';
+import { BOARD_STANDARDS, CORRECTION_ASSUMPTIONS, CORRECTION_STANDARDS, modelAssumptions, THREE_PHASE_STANDARDS } from './reportWording.js';
 
 export interface BoardReportInput {
   /** The board file as validated (`parseBoard`; the board’s own fields are read): names, circuit numbers, breakers, supply data. */
@@ -58,7 +59,9 @@ export function closingSections(input: ClosingInput): ReportSection[] {
   const { correction, harmonics, handCheck } = input;
   // A hand check adds capacitors too, so the capacitor law (the first correction assumption) applies to it.
   const capacitorAssumptions = correction ? CORRECTION_ASSUMPTIONS : handCheck ? CORRECTION_ASSUMPTIONS.slice(0, 1) : [];
-  const assumptions = [...MODEL_ASSUMPTIONS, ...(input.assumptions ?? []), ...capacitorAssumptions];
+  const first = input.results[0];
+  const label = first ? (p: string) => labelIn(first.conventions.phaseNames, p) : undefined;
+  const assumptions = [...modelAssumptions(input.results.map((r) => r.board.system), label), ...(input.assumptions ?? []), ...capacitorAssumptions];
   const standards = [
     ...BOARD_STANDARDS,
     ...(input.results.some((r) => r.sequences) ? THREE_PHASE_STANDARDS : []),

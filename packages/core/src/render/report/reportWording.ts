@@ -1,10 +1,32 @@
 /** Fixed wording of reports: assumptions and the standards and methods referred to. */
 
-export const MODEL_ASSUMPTIONS: readonly string[] = [
+/**
+ * How the line currents close, said for the board's system: a three-phase 3-wire board has no neutral
+ * (its line currents sum to zero), a split-phase board has two lines, a single-phase board one.
+ */
+export function currentConvention(system: string, label: (phase: string) => string = (p) => p): string {
+  const closes =
+    system === 'three-phase-3wire'
+      ? 'the board has no neutral, so the three line currents add up to zero'
+      : system === 'split-phase'
+        ? 'the neutral current back to the source, so the two line currents add up to the neutral current'
+        : system === 'single-phase'
+          ? 'the neutral current back to the source, equal and opposite to the line current'
+          : 'the neutral current back to the source, so the three line currents add up to the neutral current';
+  return `Line currents flow from the source into the board${system === 'three-phase-3wire' ? '' : ' and'} ${system === 'three-phase-3wire' ? `(${closes})` : closes}. Phase angles are referred to the source voltage of line ${label('A')}.`;
+}
+
+/** The model's assumptions, with the current convention of the boards in the report (one sentence per system). */
+export function modelAssumptions(systems: readonly string[], label?: (phase: string) => string): string[] {
+  const [first, ...rest] = MODEL_ASSUMPTIONS;
+  const conventions = [...new Set(systems.length ? systems : ['three-phase-4wire'])].map((s) => currentConvention(s, label));
+  return [first!, ...rest.slice(0, 2), ...conventions, ...rest.slice(2)];
+}
+
+const MODEL_ASSUMPTIONS: readonly string[] = [
   'Steady state at the fundamental frequency: voltages and currents are sinusoidal phasors (rms values).',
   'Every circuit is modelled as entered: its rating at nominal voltage and its voltage dependence (constant power, current, impedance or a ZIP mix); a constant-power or constant-current load below 0.7 of its nominal voltage is held at the impedance it has there.',
   'The source is three (or two) EMFs behind the source impedance; a transformer rating gives that impedance referred to the board voltage. Feeder conductors are series impedances, each at the resistance of its stated operating temperature (a conductor from the cable library is corrected from its 20 °C table value); mutual coupling between conductors, and the temperature the load current itself would give, are not modelled.',
-  'Line currents flow from the source into the board and the neutral current back to the source, so the three line currents add up to the neutral current. Phase angles are referred to the phase-A source voltage.',
   'Powers follow the load convention: kW above zero is consumed, kvar above zero is lagging (inductive).',
 ];
 
