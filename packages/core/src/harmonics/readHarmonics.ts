@@ -6,6 +6,7 @@ import { abs, absSquared, arg, conj, mul, radToDeg, scale, sub, sum, ZERO, type 
 import type { Board, PhaseId } from '../board/boardModel.js';
 import type { NetworkSolution } from '../network/solveNetwork.js';
 import { terminalVoltage } from '../network/solveNetwork.js';
+import { currentNoiseFloor } from '../analysis/noiseFloor.js';
 import type { DistortionReading, HarmonicLineReading, OrderReading } from './harmonicsResult.js';
 
 /** A solved order: h and its solution (h = 1 is the fundamental). */
@@ -60,7 +61,11 @@ export function linePairs(board: Board): (readonly [PhaseId, PhaseId])[] {
 
 export function readLines(orders: readonly OrderSolution[]): HarmonicLineReading[] {
   const board = orders[0]!.solution.board;
-  const voltages = orders.map((o) => ({ order: o.order, v: phaseVoltages(o.solution), i: o.solution.lineCurrents }));
+  // Round-off is not data (noiseFloor.ts): a line carrying nothing read 4e-15 A and a "true PF" of -0.050.
+  // The fundamental's floor (the largest currents of the study) serves every order.
+  const floor = currentNoiseFloor(orders.find((o) => o.order === 1)?.solution ?? orders[0]!.solution);
+  const clean = (i: ComplexValue) => (abs(i) < floor ? ZERO : i);
+  const voltages = orders.map((o) => ({ order: o.order, v: phaseVoltages(o.solution), i: o.solution.lineCurrents.map(clean) }));
   return board.phases.map((phase, k) => {
     const current = distortionOf(voltages.map((o) => ({ order: o.order, value: o.i[k]! })));
     const voltage = distortionOf(voltages.map((o) => ({ order: o.order, value: o.v[k]! })));
@@ -89,5 +94,6 @@ export function readLineToLine(orders: readonly OrderSolution[]): { pair: string
 
 export function readNeutral(orders: readonly OrderSolution[]): DistortionReading | null {
   if (!orders[0]!.solution.board.hasNeutral) return null;
-  return distortionOf(orders.map((o) => ({ order: o.order, value: o.solution.neutralCurrent ?? ZERO })));
+  const floor = currentNoiseFloor(orders.find((o) => o.order === 1)?.solution ?? orders[0]!.solution);
+  return distortionOf(orders.map((o) => ({ order: o.order, value: o.solution.neutralCurrent && abs(o.solution.neutralCurrent) >= floor ? o.solution.neutralCurrent : ZERO })));
 }
