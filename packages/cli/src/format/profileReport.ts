@@ -138,6 +138,7 @@ export function bankLines(r: { readonly bank: ProfileResult['bank']; readonly be
         ]
       : []),
     `  controller: ${band}, switching threshold ${fixed(set.responseShare, 2)} × smallest step, delay ${set.delaySeconds} s, reconnect after ${set.reconnectSeconds} s`,
+    wrapText(b.withinInterval.words, '  ', '    '),
     '',
     renderTable(
       [{ header: 'step' }, { header: 'where', align: 'left' }, { header: 'kvar' }, { header: 'closings' }, { header: 'per year' }],

@@ -7,6 +7,7 @@ import type { Board } from '../board/boardModel.js';
 import type { SwitchedStep, SwitchingSettings } from './bankController.js';
 import { maximumOf } from './intervalStatistics.js';
 import { PROFILE_DEFAULTS } from './profileDefaults.js';
+import { switchingWithinIntervalWords } from './profileWording.js';
 import type { ProfileSpec } from './profileSpec.js';
 import type { BankRun } from './simulateBank.js';
 import { sizeBankSteps } from './sizeBankSteps.js';
@@ -92,6 +93,11 @@ export function bankOverProfile(input: BankOverProfileInput, options: Pick<Profi
       fixedKvar: fixed.reduce((s, x) => s + x.kvar, 0),
       notSimulated: designed && (designed.notSimulated.length || designed.fixedNotSimulatedKvar) ? { outputs: designed.notSimulated, fixedKvar: designed.fixedNotSimulatedKvar } : null,
       settings: { ...rest, upperPf: upperPf ?? null },
+      withinInterval: {
+        intervalSeconds: input.intervalMs / 1000,
+        movesPerInterval: settings.delaySeconds > 0 ? Math.floor(input.intervalMs / 1000 / settings.delaySeconds) : null,
+        words: switchingWithinIntervalWords(input.intervalMs / 1000, settings.delaySeconds, settings.reconnectSeconds),
+      },
       operationsPerYearLimit: PROFILE_DEFAULTS.operationsPerYearLimit,
       contactorLifeOperations: PROFILE_DEFAULTS.contactorLifeOperations,
       yearsToContactorLife: busiest > 0 ? PROFILE_DEFAULTS.contactorLifeOperations / busiest : null,

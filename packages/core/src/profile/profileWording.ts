@@ -4,3 +4,17 @@ export const PROFILE_CAUTIONS: readonly string[] = [
   'A neutral that carries more than its rating in any interval overheats in service; check conductor sizing against local wiring rules.',
   'Capacitor banks store charge after switching off: reconnection before discharge, leading power factor at light load, and resonance with the supply are hazards. Installation and settings are for licensed practitioners under local codes.',
 ];
+
+/**
+ * What a simulated bank assumes inside an interval, where the interval length matters: the data gives
+ * each interval's average only, so the load is taken as steady through it.
+ */
+export function switchingWithinIntervalWords(intervalSeconds: number, delaySeconds: number, reconnectSeconds: number): string {
+  const t = `${intervalSeconds} s intervals`;
+  if (delaySeconds === 0)
+    return `each interval's load is taken as steady through it; with no switching delay the controller settles at the start of each of the ${t} (a step back in only after its ${reconnectSeconds} s discharge)`;
+  const moves = Math.floor(intervalSeconds / delaySeconds);
+  if (intervalSeconds <= delaySeconds)
+    return `each interval's load is taken as steady through it; with ${t} and a ${delaySeconds} s delay the controller makes at most one move per interval, shown from the interval after it`;
+  return `each interval's load is taken as steady through it; with ${t} and a ${delaySeconds} s delay the controller makes up to ${moves} moves within one (a step back in only after its ${reconnectSeconds} s discharge), and the interval shows the steps in service for most of it`;
+}

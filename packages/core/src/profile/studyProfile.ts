@@ -86,6 +86,11 @@ export interface ProfileBankResult {
     readonly delaySeconds: number;
     readonly reconnectSeconds: number;
   };
+  /**
+   * The switching inside an interval, where its length matters: the load taken as steady through each
+   * interval, at most floor(interval ÷ delay) moves in it (null: no delay, the controller settles at once).
+   */
+  readonly withinInterval: { readonly intervalSeconds: number; readonly movesPerInterval: number | null; readonly words: string };
   readonly operationsPerYearLimit: number;
   readonly contactorLifeOperations: number;
   /** Years until the busiest step's contactor reaches its typical life. */
