@@ -146,7 +146,8 @@ export function resolveLimits(board: Board, spec: ProfileSpec | undefined): Reso
   const fromProfile = l?.voltageLowPercent !== undefined || l?.voltageHighPercent !== undefined;
   return {
     unbalancePercent: l?.unbalancePercent ?? PROFILE_DEFAULTS.unbalancePercent,
-    neutralA: l?.neutralA ?? board.neutralRatingA ?? board.lineRatingA,
+    // An unrated neutral has no limit: a line's rating says nothing of the neutral's conductor.
+    neutralA: l?.neutralA ?? board.neutralRatingA,
     voltageLowPercent: l?.voltageLowPercent ?? 100 - own.underPercent,
     voltageHighPercent: l?.voltageHighPercent ?? 100 + own.overPercent,
     voltageLimitsFrom: fromProfile ? 'profile.limits' : own.preset,
