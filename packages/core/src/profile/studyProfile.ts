@@ -14,6 +14,7 @@ import type { SequenceReport } from './checkIntervalSequence.js';
 import { PROFILE_DEFAULTS } from './profileDefaults.js';
 import type { ProfileSpec } from './profileSpec.js';
 import { simulateBank } from './simulateBank.js';
+import { clearRoundOff, conductorFloorA } from './intervalRoundOff.js';
 import { bankOverProfile } from './bankOverProfile.js';
 import { allocateFigures, solveBatch, type BatchSolveOptions, type IntervalFigures } from './solveBatch.js';
 import { summariseFigures, type ProfileSummary, type ResolvedLimits, type SummaryContext } from './summariseFigures.js';
@@ -216,6 +217,9 @@ export function studyProfile(input: ProfileStudyInput, options: ProfileStudyOpti
     const net = compileBatchNetwork(board, input.drivers);
     path = solveBatch(net, input.columns, before, { ...options.solve, onProgress: (d) => options.onProgress?.('solve', d, n) }).path;
   }
+  // Round-off is not data: an idle interval has no current, power or power factor (figures solved elsewhere too).
+  const floorA = conductorFloorA([board]);
+  clearRoundOff([before], floorA, board.nominalLineToNeutralV);
   const beforeSummary = summariseFigures(before, ctx);
 
   // On a board file the controller reads the board's own incomer; a metering point upstream needs the installation's circuit.
@@ -233,8 +237,11 @@ export function studyProfile(input: ProfileStudyInput, options: ProfileStudyOpti
       label,
       ...(input.profile ? { profile: input.profile } : {}),
       summarise: (f) => summariseFigures(f, ctx),
-      simulate: (steps, fixed, settings) =>
-        simulateBank({ board, drivers: input.drivers, columns: input.columns, utcMs: input.utcMs, intervalMs: input.intervalMs, steps, fixed, settings, ...(options.solve ? { solve: options.solve } : {}) }),
+      simulate: (steps, fixed, settings) => {
+        const run = simulateBank({ board, drivers: input.drivers, columns: input.columns, utcMs: input.utcMs, intervalMs: input.intervalMs, steps, fixed, settings, ...(options.solve ? { solve: options.solve } : {}) });
+        clearRoundOff([run.figures], floorA, board.nominalLineToNeutralV);
+        return run;
+      },
     },
     options,
   );
