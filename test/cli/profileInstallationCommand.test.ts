@@ -218,7 +218,7 @@ describe('trivar profile on an installation', () => {
     writeFileSync(twice, readFileSync(`${ROOT}${FILE}`, 'utf8').replace('- { name: Drying cabinet,', '- { name: Cafe,'));
     const amb = runTrivar(['profile', twice, '--data', `${ROOT}${DATA}`]);
     expect(amb.code).not.toBe(0);
-    expect(amb.stderr).toContain('"Mill intake/Cafe", "Print room/Cafe"');
+    expect(amb.stderr).toContain('load "Cafe" on board "Mill intake" (write "Mill intake/Cafe") and load "Cafe" on board "Print room" (write "Print room/Cafe")');
     expect(amb.stderr).toMatch(/column 4 \("Cafe \[kW\]"\)/);
   });
 

@@ -120,7 +120,7 @@ describe('scenarios on an installation', () => {
         ['unknown_load', 'profile.scenarios[0].loads.Oven'],
         ['ambiguous_load', 'profile.scenarios[0].loads.Cafe'],
       ]);
-      expect(issues[2]!.expected).toContain('"Mill intake/Cafe", "Print room/Cafe"');
+      expect(issues[2]!.expected).toContain('load "Cafe" on board "Mill intake" (write "Mill intake/Cafe") and load "Cafe" on board "Print room" (write "Print room/Cafe")');
     }
     expect(() => studyInstallationScenarios(installation, { scenarios: [{ name: 'a', hours: 1, loads: {} }, { name: 'b', weight: 1, loads: {} }] })).toThrow(InputError);
   });

@@ -14,7 +14,7 @@ import { InputError, inputIssue, type InputIssue } from '../errors.js';
 import { bankPartIndices, listedBanksInService, type ListedBankInService } from '../analysis/banksInServiceWords.js';
 import { boardOfInstallation } from '../network/installationModel.js';
 import { NOISE_FLOOR_RELATIVE } from '../analysis/noiseFloor.js';
-import { bankPartIssue, boardNamesOf, flattenLoads, loadLookup } from './installationColumns.js';
+import { ambiguousLoadIssue, bankPartIssue, boardNamesOf, flattenLoads, loadLookup } from './installationColumns.js';
 import { allocateBoardFigures, compileInstallationBatch, solveInstallationBatch } from './installationBatch.js';
 import type { ProfileSpec } from './profileSpec.js';
 import { asPrinted } from '../board/conventions/voltageLimits.js';
@@ -44,7 +44,7 @@ export interface InstallationScenarioResult {
   readonly banksInService: readonly ListedBankInService[];
 }
 
-const EXPECTED_LOAD = 'a load name on one board, "<board>/<load>", or a group from profile.groups';
+const EXPECTED_LOAD = 'a load name on one board, "<board>/<load>" (or "<board>//<load>"), or a group from profile.groups';
 
 /**
  * @throws {InputError} naming the field (`profile.scenarios[k].loads.<name>`, `profile.groups.<group>[i]`) of a
@@ -70,12 +70,12 @@ export function studyInstallationScenarios(installation: Installation, profile: 
     }
     if (found.length === 1) return found[0]!;
     if (found.length === 0) issues.push(inputIssue('unknown_load', path, expected, name));
-    else issues.push(inputIssue('ambiguous_load', path, `the load with its board, one of ${found.map((l) => `"${flat.loads[l]!.name}"`).join(', ')} (several boards have a load "${name}")`, name));
+    else issues.push(ambiguousLoadIssue(installation, lookup, 'ambiguous_load', path, name, found));
     return null;
   };
   const members = new Map<string, number[]>();
   for (const [group, names] of Object.entries(groups)) {
-    const found = names.map((m, i) => oneLoad(m, `profile.groups.${group}[${i}]`, 'a load name on one board, or "<board>/<load>"'));
+    const found = names.map((m, i) => oneLoad(m, `profile.groups.${group}[${i}]`, 'a load name on one board, or "<board>/<load>" (or "<board>//<load>")'));
     if (found.every((l): l is number => l !== null)) members.set(group, found);
   }
   const named = scenarios.map((s, k) =>
