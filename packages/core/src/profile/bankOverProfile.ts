@@ -4,10 +4,10 @@
  * caller's solver (one board, or the bank's board in its installation), and what it changes.
  */
 import type { Board } from '../board/boardModel.js';
-import type { SwitchedStep, SwitchingSettings } from './bankController.js';
+import type { StepChannel, SwitchedStep, SwitchingSettings } from './bankController.js';
 import { maximumOf } from './intervalStatistics.js';
 import { PROFILE_DEFAULTS } from './profileDefaults.js';
-import { switchingWithinIntervalWords } from './profileWording.js';
+import { stepPlaceWords, switchingWithinIntervalWords } from './profileWording.js';
 import type { ProfileSpec } from './profileSpec.js';
 import type { BankRun } from './simulateBank.js';
 import { sizeBankSteps } from './sizeBankSteps.js';
@@ -88,6 +88,7 @@ export function bankOverProfile(input: BankOverProfileInput, options: Pick<Profi
       design: designed?.design ?? null,
       sizedFromProfile: source === 'profile',
       needKvar,
+      placeWords: Object.fromEntries([...new Set([...steps.map((x) => x.channel), ...Object.keys(needKvar ?? {})])].map((c) => [c, stepPlaceWords(board, c as StepChannel)])),
       steps: stepRuns,
       totalKvar: steps.reduce((s, x) => s + x.kvar, 0),
       fixedKvar: fixed.reduce((s, x) => s + x.kvar, 0),

@@ -70,6 +70,8 @@ export interface ProfileBankResult {
   readonly design: BankDesign | null;
   readonly sizedFromProfile: boolean;
   readonly needKvar: Readonly<Record<string, number>> | null;
+  /** Each channel of the steps and the need, in the board's words ("three-phase", "line-to-neutral on L1 and L2", "across L1-L2"). */
+  readonly placeWords: Readonly<Record<string, string>>;
   readonly steps: readonly BankStepRun[];
   /** Switched steps' kvar in all (the fixed part not included). */
   readonly totalKvar: number;
