@@ -129,68 +129,57 @@ export function createBankController(steps: readonly SwitchedStep[], settings: S
     return best;
   };
 
-  /**
-   * A channel's wish at these readings: a move and the earliest time it may happen; 'wait' when the
-   * channel wants a move no step can make yet (its timer runs on), 'hold' when it is content.
-   */
-  const wishOf = (channel: StepChannel, fromMs: number, r: ChannelReading): Wish | 'hold' | 'wait' => {
+  /** A channel's need and room (var) at a reading, and which way it wants to switch: the one rule every decision reads. */
+  const gauge = (channel: StepChannel, r: ChannelReading): { need: number; room: number; wants: 'in' | 'out' | null } => {
     const p = Math.max(r.w, 0);
     const need = r.var - p * tanTarget;
     // Room before the upper PF limit: how much capacitance can go in without passing it.
     const room = r.var - p * tanUpper;
     const threshold = settings.responseShare * smallest.get(channel)! * 1000;
-    const mine = ofChannel.get(channel)!;
-    if (need > threshold) {
-      const fitting = mine.filter((s) => !on[s] && (!banded || steps[s]!.kvar * 1000 <= room) && settings.responseShare * steps[s]!.kvar * 1000 < need);
-      if (!fitting.length) return 'wait';
+    return { need, room, wants: need > threshold ? 'in' : (banded ? room < 0 : need < -threshold) ? 'out' : null };
+  };
+
+  /** The step a channel would switch out at this gauge, or −1. */
+  const goingOut = (channel: StepChannel, need: number, room: number): number => {
+    const connected = ofChannel.get(channel)!.filter((s) => on[s] === 1);
+    return banded ? pickRestoring(connected, -room) : pick(connected, -need);
+  };
+
+  /** A channel's wish at these readings: a move and the earliest time it may happen, or null (content, or no step can move yet). */
+  const wishOf = (channel: StepChannel, fromMs: number, r: ChannelReading): Wish | null => {
+    const { need, room, wants } = gauge(channel, r);
+    if (wants === 'in') {
+      const fitting = ofChannel.get(channel)!.filter((s) => !on[s] && (!banded || steps[s]!.kvar * 1000 <= room) && settings.responseShare * steps[s]!.kvar * 1000 < need);
+      if (!fitting.length) return null;
       // The delay, and a step that went out must have discharged before it goes back in.
       const freeAt = Math.min(...fitting.map((s) => changedAt[s]! + reconnectMs));
       return { channel, going: 'in', dueMs: Math.max(fromMs + delayMs - inTimer.get(channel)!, freeAt) };
     }
-    if (banded ? room < 0 : need < -threshold) {
-      const connected = mine.filter((s) => on[s] === 1);
-      const s = banded ? pickRestoring(connected, -room) : pick(connected, -need);
-      return s < 0 ? 'wait' : { channel, going: 'out', dueMs: fromMs + delayMs - outTimer.get(channel)! };
-    }
-    return 'hold';
+    if (wants === 'out' && goingOut(channel, need, room) >= 0) return { channel, going: 'out', dueMs: fromMs + delayMs - outTimer.get(channel)! };
+    return null;
   };
 
-  /** Runs every channel's timers on by `ms` under these readings (a channel with nothing to do resets its). */
+  /** Runs every channel's timers on by `ms` under these readings (a channel that wants nothing resets its). */
   const runTimers = (ms: number, readings: Map<StepChannel, ChannelReading>) => {
     for (const channel of channels) {
-      const r = readings.get(channel)!;
-      const p = Math.max(r.w, 0);
-      const need = r.var - p * tanTarget;
-      const threshold = settings.responseShare * smallest.get(channel)! * 1000;
-      if (need > threshold) {
-        outTimer.set(channel, 0);
-        inTimer.set(channel, inTimer.get(channel)! + ms);
-      } else if (banded ? r.var - p * tanUpper < 0 : need < -threshold) {
-        inTimer.set(channel, 0);
-        outTimer.set(channel, outTimer.get(channel)! + ms);
-      } else {
-        inTimer.set(channel, 0);
-        outTimer.set(channel, 0);
-      }
+      const { wants } = gauge(channel, readings.get(channel)!);
+      inTimer.set(channel, wants === 'in' ? inTimer.get(channel)! + ms : 0);
+      outTimer.set(channel, wants === 'out' ? outTimer.get(channel)! + ms : 0);
     }
   };
 
   const move = (wish: Wish, r: ChannelReading) => {
-    const p = Math.max(r.w, 0);
-    const need = r.var - p * tanTarget;
-    const room = r.var - p * tanUpper;
-    const mine = ofChannel.get(wish.channel)!;
+    const { need, room } = gauge(wish.channel, r);
     const now = wish.dueMs;
     if (wish.going === 'in') {
-      const free = mine.filter((s) => !on[s] && now - changedAt[s]! >= reconnectMs && (!banded || steps[s]!.kvar * 1000 <= room));
+      const free = ofChannel.get(wish.channel)!.filter((s) => !on[s] && now - changedAt[s]! >= reconnectMs && (!banded || steps[s]!.kvar * 1000 <= room));
       const s = pick(free, need);
       on[s] = 1;
       closings[s]!++;
       changedAt[s] = now;
       inTimer.set(wish.channel, 0);
     } else {
-      const connected = mine.filter((s) => on[s] === 1);
-      const s = banded ? pickRestoring(connected, -room) : pick(connected, -need);
+      const s = goingOut(wish.channel, need, room);
       on[s] = 0;
       openings[s]!++;
       changedAt[s] = now;
@@ -208,7 +197,7 @@ export function createBankController(steps: readonly SwitchedStep[], settings: S
       let first: Wish | null = null;
       for (const channel of channels) {
         const wish = wishOf(channel, fromMs, readings.get(channel)!);
-        if (typeof wish === 'object' && wish.dueMs <= untilMs && (!first || wish.dueMs < first.dueMs)) first = wish;
+        if (wish && wish.dueMs <= untilMs && (!first || wish.dueMs < first.dueMs)) first = wish;
       }
       runTimers((first?.dueMs ?? untilMs) - fromMs, readings);
       if (!first) return null;
