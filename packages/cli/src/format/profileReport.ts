@@ -217,7 +217,7 @@ export function scenarioTable(r: BoardScenarios, label: PhaseLabeller = LETTERED
       s.unbalancePercent === null ? '-' : fixed(s.unbalancePercent, 2),
       fixed(s.kW, 1),
       fixed(s.kvar, 1),
-      fixed(s.pf, 3),
+      s.pf === null ? '-' : fixed(s.pf, 3),
     ]),
   );
 }

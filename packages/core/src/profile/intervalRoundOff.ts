@@ -7,9 +7,9 @@
  * largest current anywhere in that interval and the circuit's conductor floor (its stiffest conductor's
  * round-off) is zero. A phase whose current is zero carries no power, and a phase's active or reactive
  * power below that fraction of the largest phase power — or below what a current at the floor carries at
- * nominal voltage — is zero.
+ * nominal voltage — is zero. A |V2|/|V1| below the solve's sequence resolution is zero too.
  */
-import { NOISE_FLOOR_RELATIVE, noiseFloorFor } from '../analysis/noiseFloor.js';
+import { NOISE_FLOOR_RELATIVE, noiseFloorFor, SEQUENCE_VOLTAGE_RESOLUTION } from '../analysis/noiseFloor.js';
 import type { Board } from '../board/boardModel.js';
 import type { IntervalFigures } from './solveBatch.js';
 
@@ -37,6 +37,7 @@ export function clearRoundOff(boards: readonly IntervalFigures[], floorA = 0, no
     const noiseA = Math.max(NOISE_FLOOR_RELATIVE * largestA, floorA);
     const noiseVA = Math.max(NOISE_FLOOR_RELATIVE * largestVA, noiseA * nominalV);
     for (const f of boards) {
+      if (f.unbalancePercent[i]! < 100 * SEQUENCE_VOLTAGE_RESOLUTION) f.unbalancePercent[i] = 0;
       if (f.neutralA[i]! < noiseA) f.neutralA[i] = 0;
       for (let k = 0; k < f.lineA.length; k++) {
         const idle = f.lineA[k]![i]! < noiseA;

@@ -14,6 +14,7 @@ import { InputError, inputIssue, type InputIssue } from '../errors.js';
 import { bankPartIndices, listedBanksInService, type ListedBankInService } from '../analysis/banksInServiceWords.js';
 import { boardOfInstallation } from '../network/installationModel.js';
 import { NOISE_FLOOR_RELATIVE } from '../analysis/noiseFloor.js';
+import { clearRoundOff, conductorFloorA } from './intervalRoundOff.js';
 import { ambiguousLoadIssue, bankPartIssue, boardNamesOf, flattenLoads, loadLookup } from './installationColumns.js';
 import { allocateBoardFigures, compileInstallationBatch, solveInstallationBatch } from './installationBatch.js';
 import type { ProfileSpec } from './profileSpec.js';
@@ -95,6 +96,7 @@ export function studyInstallationScenarios(installation: Installation, profile: 
   const figures = allocateBoardFigures(installation, scenarios.length);
   solveInstallationBatch(compileInstallationBatch(installation, flat.loads, flat.boards, drivers), columns, figures);
   const names = boardNamesOf(installation);
+  clearRoundOff(figures, conductorFloorA(names.map((_, b) => boardOfInstallation(installation, b))), installation.main.nominalLineToNeutralV);
   // A board with nothing on in a scenario still shows round-off power (about 1e-13 W); as the general solve
   // does with currents (analysis/noiseFloor.ts), power below that fraction of the supply's largest is none.
   let largest = 0;
