@@ -188,3 +188,48 @@ describe('a step across two lines', () => {
     }
   });
 });
+
+describe('the controller settles within an interval longer than its delay', () => {
+  // The stiff board above at P = 30 kW; on: Q = 30.606 kvar (PF 0.70), off: nothing. Five 5 kvar steps,
+  // threshold 0.67 × 5 = 3.35 kvar, delay 30 s. Need when on: 30.606 − 9.861 = 20.745 kvar.
+  const Q_ON = 30_606;
+  const fifteen = (pattern: number[], reconnectSeconds: number, intervalMs = 900_000) =>
+    simulateBank({
+      board,
+      drivers: [{ name: 'compressors', loads: [{ load: 0, coefficient: { re: 1, im: 0 } }] }],
+      columns: { count: pattern.length, re: [Float64Array.from(pattern, (x) => x * P)], im: [Float64Array.from(pattern, (x) => x * Q_ON)] },
+      utcMs: Float64Array.from(pattern, (_, m) => t0 + m * intervalMs),
+      intervalMs,
+      steps: [0, 1, 2, 3, 4].map(() => ({ kvar: 5, channel: 'ABC' as const })),
+      settings: { targetPf: 0.95, responseShare: 0.67, delaySeconds: 30, reconnectSeconds },
+    });
+
+  it('15-minute data: the bank is on in every loaded interval and off in every idle one', () => {
+    // On: steps in at 30, 60, 90 and 120 s (need 20.7 → 15.7 → 10.7 → 5.7 → 0.7 < 3.35, hold): 20 kvar
+    // for 780 of the 900 s. Off: Q = −20 kvar, the four out at 30…120 s: none for 780 s.
+    const run = fifteen([0, 1, 1, 0, 1, 0, 0, 1], 60);
+    expect([...run.connectedKvar]).toEqual([0, 20, 20, 0, 20, 0, 0, 20]);
+    expect(run.closings.reduce((a, b) => a + b)).toBe(12);
+    expect(run.openings.reduce((a, b) => a + b)).toBe(8);
+    for (const m of [1, 2, 4, 7]) {
+      const q = run.figures.phaseVar.reduce((s, col) => s + col[m]!, 0);
+      expectClose(q, Q_ON - 20_000, { rel: 1e-12, abs: 1e-6 }, `Q at interval ${m}`);
+    }
+    for (const m of [0, 3, 5, 6]) expect(Math.abs(run.figures.phaseVar.reduce((s, col) => s + col[m]!, 0))).toBeLessThan(1e-6);
+  });
+
+  it('a step goes back in only after its discharge time, and the interval shows what held longest', () => {
+    // On, off, on with a 1500 s discharge. Interval 1 (900 s): steps 1–4 out at 930, 960, 990, 1020 s.
+    // Interval 2 (1800 s): step 5, never used, in at 1830; step 1 is free at 930 + 1500 = 2430, then
+    // 2460, 2490: 0 kvar for 30 s, 5 for 600 s, 10 and 15 for 30 s each, 20 for the last 210 s → 5 shown.
+    const run = fifteen([1, 0, 1, 1], 1500);
+    expect([...run.connectedKvar]).toEqual([20, 0, 5, 20]);
+  });
+
+  it('1-minute data: two moves a minute, the minute shown with what held longest (the earlier on a tie)', () => {
+    // Minute 1: 0 kvar for 30 s, 5 for 30 s, the second move at its end → 0 shown; minute 2 starts at
+    // 10: 10 for 30 s, 15 for 30 s → 10 shown; minute 3 starts at 20, need 0.7: hold.
+    const run = fifteen([0, 1, 1, 1, 1], 60, 60_000);
+    expect([...run.connectedKvar]).toEqual([0, 0, 10, 20, 20]);
+  });
+});

@@ -52,6 +52,58 @@ describe('installation column plan', () => {
       ['header, column 3 ("Oven [kW]")', 'unknown_target'],
       ['header, column 4 ("Kiln shed/phase A [kW]")', 'unknown_target'],
     ]);
-    expect(issues[0]!.message).toContain('"Mill intake/Cafe", "Print room/Cafe"');
+    expect(issues[0]!.message).toContain('load "Cafe" on board "Mill intake" (write "Mill intake/Cafe") and load "Cafe" on board "Print room" (write "Print room/Cafe")');
+  });
+});
+
+describe('names that meet: a load "Sub A/b" on the main board and a load "b" on board "Sub A"', () => {
+  const file = (more: string) =>
+    normaliseInstallation(
+      parseInstallation(
+        readBoardText(`name: Meeting names
+supply: { voltage: 230/400, frequencyHz: 50 }
+boards:
+  - name: Main
+    loads:
+      - { name: "Sub A/b", connection: A-N, kW: 3 }
+  - name: Sub A
+    fedFrom: Main
+    feeder: { lengthM: 10, line: { mm2: 10 }, neutral: { mm2: 10 } }
+    loads:
+      - { name: b, connection: A-N, kW: 4 }
+${more}`),
+      ),
+    ).installation;
+  const meeting = file('');
+
+  it('says "Sub A/b" names both, each on its board, and offers only names that reach one alone', () => {
+    const issues = issuesOf(() => planInstallationColumns(meeting, ['time', 'Sub A/b [x]']));
+    expect(issues).toEqual([
+      {
+        path: 'header, column 2 ("Sub A/b [x]")',
+        code: 'ambiguous_target',
+        message: expect.stringContaining('one load; "Sub A/b" names 2: load "Sub A/b" on board "Main" (write "Main/Sub A/b") and load "b" on board "Sub A" (write "b")'),
+      },
+    ]);
+    // The names offered do reach one load each.
+    const plan = planInstallationColumns(meeting, ['time', 'Main/Sub A/b [x]', 'b [x]']);
+    expect(plan.targets.map((t) => [t.name, t.loads.map((l) => [plan.board.loads[l]!.name, plan.loadBoards[l]])])).toEqual([
+      ['Main/Sub A/b', [['Main/Sub A/b', 0]]],
+      ['b', [['Sub A/b', 1]]],
+    ]);
+  });
+
+  it('where no other name reaches a load alone, "<board>//<load>" does, and is offered', () => {
+    // A third board with its own "b": bare "b" and "Sub A/b" now each name two loads.
+    const three = file(`  - name: Shed
+    fedFrom: Main
+    feeder: { lengthM: 10, line: { mm2: 10 }, neutral: { mm2: 10 } }
+    loads:
+      - { name: b, connection: B-N, kW: 1 }
+`);
+    const issues = issuesOf(() => planInstallationColumns(three, ['time', 'Sub A/b [x]']));
+    expect(issues[0]!.message).toContain('load "Sub A/b" on board "Main" (write "Main/Sub A/b") and load "b" on board "Sub A" (write "Sub A//b")');
+    const plan = planInstallationColumns(three, ['time', 'Sub A//b [x]', 'Main//Sub A/b [x]', 'Shed/b [x]']);
+    expect(plan.targets.map((t) => t.loads.map((l) => plan.loadBoards[l]))).toEqual([[1], [0], [2]]);
   });
 });

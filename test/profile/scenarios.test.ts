@@ -49,3 +49,23 @@ describe('scenarios', () => {
     }
   });
 });
+
+describe('a scenario with nothing on', () => {
+  it('has zero current and power and no power factor, not the round-off\'s 0.623', () => {
+    const board = normaliseBoard(
+      parseBoard({
+        supply: { voltage: '400/230', frequencyHz: 50, transformer: { kVA: 100, impedancePercent: 4, xOverR: 3 } },
+        loads: [{ name: 'Motor', connection: 'ABC-delta', kW: 30, pf: 0.7 }],
+      }),
+    );
+    const r = studyScenarios(board, {
+      scenarios: [
+        { name: 'running', hours: 2000, loads: { Motor: 1 } },
+        { name: 'idle', hours: 6760, loads: { Motor: 0 } },
+      ],
+    });
+    const idle = r.scenarios[1]!;
+    expect([...idle.lineA, idle.neutralA, idle.kW, idle.kvar, idle.unbalancePercent, idle.pf]).toEqual([0, 0, 0, 0, 0, 0, 0, null]);
+    expect(r.scenarios[0]!.pf).toBeCloseTo(0.7, 9);
+  });
+});

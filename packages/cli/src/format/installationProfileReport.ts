@@ -96,7 +96,7 @@ export function renderInstallationProfileReport(r: InstallationProfileResult, cu
     worstTable(main.before),
   ];
   if (r.bank && bankBoard) {
-    parts.push(section(`Automatic bank on ${r.bank.board} over the profile`), bankLines({ bank: r.bank, before: bankBoard.before }, label));
+    parts.push(section(`Automatic bank on ${r.bank.board} over the profile`), bankLines({ bank: r.bank, before: bankBoard.before }));
     const meter = r.bank.meter;
     if (meter)
       parts.push(

@@ -1,5 +1,6 @@
 /** CSV files of `trivar profile`: the summary (one figure a row) and the per-interval results. */
 import { labellerOf, type BankStepRun, type InstallationProfileResult, type InstallationProfileStudy, type IntervalFigures, type PhaseLabeller, type ProfileResult, type ProfileStudy, type ProfileSummary } from '@trivar/core';
+import { fixed } from './textTable.js';
 
 const cell = (x: string | number | null) => {
   if (x === null) return '';
@@ -71,7 +72,7 @@ export function intervalCsv(study: ProfileStudy, label: PhaseLabeller = labeller
   const vBase = study.nominalLineToNeutralV;
   for (let i = 0; i < f.count; i++) {
     let line = `${study.label(i)},${figuresRow(f, i, vBase)}`;
-    if (study.after) line += `,${study.connectedKvar![i]!.toFixed(1)},${figuresRow(study.after, i, vBase)}`;
+    if (study.after) line += `,${fixed(study.connectedKvar![i]!, 1)},${figuresRow(study.after, i, vBase)}`;
     out.push(line);
   }
   return out.join('\n') + '\n';
@@ -89,7 +90,7 @@ export function installationIntervalCsv(study: InstallationProfileStudy, nominal
   const out: string[] = [head.map(cell).join(',')];
   for (let i = 0; i < study.before[0]!.count; i++) {
     let line = [study.label(i), ...before.map((f) => figuresRow(f, i, nominalLineToNeutralV))].join(',');
-    if (after) line += `,${study.connectedKvar![i]!.toFixed(1)},${after.map((f) => figuresRow(f, i, nominalLineToNeutralV)).join(',')}`;
+    if (after) line += `,${fixed(study.connectedKvar![i]!, 1)},${after.map((f) => figuresRow(f, i, nominalLineToNeutralV)).join(',')}`;
     out.push(line);
   }
   return out.join('\n') + '\n';
@@ -115,12 +116,13 @@ function figuresRow(g: IntervalFigures, i: number, vBase: number): string {
     q += g.phaseVar[k]![i]!;
   }
   const s = Math.hypot(w, q);
+  // A figure that rounds to zero prints as 0, never −0; an interval with no power has no power factor.
   return [
-    ...g.lineA.map((c) => c[i]!.toFixed(2)),
-    g.neutralA[i]!.toFixed(2),
-    ...g.phaseV.map((c) => ((100 * c[i]!) / vBase).toFixed(2)),
-    (w / 1000).toFixed(3),
-    (q / 1000).toFixed(3),
-    s === 0 ? '' : (Math.abs(w) / s).toFixed(4),
+    ...g.lineA.map((c) => fixed(c[i]!, 2)),
+    fixed(g.neutralA[i]!, 2),
+    ...g.phaseV.map((c) => fixed((100 * c[i]!) / vBase, 2)),
+    fixed(w / 1000, 3),
+    fixed(q / 1000, 3),
+    s === 0 ? '' : fixed(Math.abs(w) / s, 4),
   ].join(',');
 }

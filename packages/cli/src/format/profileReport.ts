@@ -109,13 +109,13 @@ export function monthTable(s: ProfileSummary, after: ProfileSummary | null, curr
   return renderTable(head, rows);
 }
 
-export function bankLines(r: { readonly bank: ProfileResult['bank']; readonly before: ProfileSummary }, label: PhaseLabeller): string {
+export function bankLines(r: { readonly bank: ProfileResult['bank']; readonly before: ProfileSummary }): string {
   const b = r.bank!;
   const set = b.settings;
   const sizing =
     b.source === 'profile'
       ? `sized from the profile to hold the target in ${fixed((set.coverShare ?? 0) * 100, 0)} % of intervals: ${Object.entries(b.needKvar ?? {})
-          .map(([c, v]) => `${fixed(v, 1)} kvar ${c === 'ABC' ? 'three-phase' : `on phase ${label(c)}`}`)
+          .map(([c, v]) => `${fixed(v, 1)} kvar ${b.placeWords[c] ?? c}`)
           .join(', ')} needed`
       : b.source === 'correction-study'
         ? b.design?.recommended
@@ -138,10 +138,11 @@ export function bankLines(r: { readonly bank: ProfileResult['bank']; readonly be
         ]
       : []),
     `  controller: ${band}, switching threshold ${fixed(set.responseShare, 2)} × smallest step, delay ${set.delaySeconds} s, reconnect after ${set.reconnectSeconds} s`,
+    wrapText(b.withinInterval.words, '  ', '    '),
     '',
     renderTable(
       [{ header: 'step' }, { header: 'where', align: 'left' }, { header: 'kvar' }, { header: 'closings' }, { header: 'per year' }],
-      b.steps.map((s) => [String(s.step), s.channel === 'ABC' ? 'three-phase' : s.channel.includes('-') ? `across ${label(s.channel)}` : `phase ${label(s.channel)}`, fixed(s.kvar, 1), thousands(s.closings), thousands(s.closingsPerYear)]),
+      b.steps.map((s) => [String(s.step), b.placeWords[s.channel] ?? s.channel, fixed(s.kvar, 1), thousands(s.closings), thousands(s.closingsPerYear)]),
     ),
     `  typical limit ${thousands(b.operationsPerYearLimit)} operations a year per step (IEC 60831-1 practice); a capacitor contactor lasts about ${thousands(b.contactorLifeOperations)} operations${
       b.yearsToContactorLife === null ? '' : ` — the busiest step reaches that in ${fixed(b.yearsToContactorLife, 1)} years`
@@ -158,8 +159,11 @@ export function bankLines(r: { readonly bank: ProfileResult['bank']; readonly be
 }
 
 export function worstTable(s: ProfileSummary): string {
-  const rows = (s.worstByNeutral.length ? s.worstByNeutral : s.worstByLine).map((w) => [w.at, fixed(w.maxLineA, 1), fixed(w.neutralA, 1), fixed(w.unbalancePercent, 2)]);
-  return renderTable([{ header: 'interval', align: 'left' }, { header: 'highest line A' }, { header: 'neutral A' }, { header: 'unbalance %' }], rows);
+  const worst = s.worstByNeutral.length ? s.worstByNeutral : s.worstByLine;
+  const rows = worst.map((w) => [w.at, fixed(w.maxLineA, 1), fixed(w.neutralA, 1), w.unbalancePercent === null ? '-' : fixed(w.unbalancePercent, 2)]);
+  const table = renderTable([{ header: 'interval', align: 'left' }, { header: 'highest line A' }, { header: 'neutral A' }, { header: 'unbalance %' }], rows);
+  // Sequence components need three phases: on a split-phase or single-phase board there is no |V2|/|V1| (solve leaves it blank too).
+  return worst.some((w) => w.unbalancePercent === null) ? `${table}\n  (unbalance %: |V2|/|V1|, defined for three phases only; - on this board)` : table;
 }
 
 /** @param label the board file's phase labels (`labellerOf(conventionsOf(board).phaseNames)`) */
@@ -180,7 +184,7 @@ export function renderProfileReport(r: ProfileResult, currency: string, label: P
     section(s.worstByNeutral.length ? 'Intervals with the highest neutral current' : 'Intervals with the highest line current'),
     worstTable(s),
   ];
-  if (r.bank) parts.push(section('Automatic bank over the profile'), bankLines(r, label));
+  if (r.bank) parts.push(section('Automatic bank over the profile'), bankLines(r));
   parts.push(section('Cautions'), ...r.cautions.map((c) => `  - ${c}`));
   return `${parts.join('\n')}\n`;
 }
@@ -213,7 +217,7 @@ export function scenarioTable(r: BoardScenarios, label: PhaseLabeller = LETTERED
       s.unbalancePercent === null ? '-' : fixed(s.unbalancePercent, 2),
       fixed(s.kW, 1),
       fixed(s.kvar, 1),
-      fixed(s.pf, 3),
+      s.pf === null ? '-' : fixed(s.pf, 3),
     ]),
   );
 }

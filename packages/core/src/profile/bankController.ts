@@ -13,6 +13,12 @@
  * evens the wear). A step that has been switched out may reconnect only after
  * the reconnect (discharge) time.
  *
+ * Time runs continuously: `advance` watches the board over a stretch in which
+ * the readings hold and makes the first move that falls due in it, at the time
+ * it falls due (the delay run out, and for a step going in, its discharge
+ * done). A caller re-reads the board after each move and asks again, so within
+ * one interval the controller makes as many moves as its delay leaves room for.
+ *
  * With an upper limit (`upperPf`, lagging; 1 = unity) the controller holds a
  * band instead of a single target: Q between max(P, 0)·tan φ_upper and
  * max(P, 0)·tan φ_target. A step switches in only if it leaves Q at or above the
@@ -63,12 +69,20 @@ export interface BankController {
   readonly closings: Int32Array;
   readonly openings: Int32Array;
   /**
-   * Takes the readings of an interval that started at `startMs` and lasted
-   * `durationMs`; switches at its end. `readingOf(channel)` gives the channel's reading.
+   * Watches the board from `fromMs` to `untilMs` with the readings `readingOf(channel)` holding throughout,
+   * and makes the first move that falls due by `untilMs` (one step in or out on one channel).
+   * @returns the time of that move, or null when none falls due (the timers then run on to `untilMs`)
    */
-  observe(startMs: number, durationMs: number, readingOf: (channel: StepChannel) => ChannelReading): void;
+  advance(fromMs: number, untilMs: number, readingOf: (channel: StepChannel) => ChannelReading): number | null;
   /** Forget pending timers (called across a gap in the data). */
   interrupt(): void;
+}
+
+/** A move a channel wants: a step in or out, due at `dueMs`. */
+interface Wish {
+  readonly channel: StepChannel;
+  readonly going: 'in' | 'out';
+  readonly dueMs: number;
 }
 
 export function createBankController(steps: readonly SwitchedStep[], settings: SwitchingSettings): BankController {
@@ -115,53 +129,80 @@ export function createBankController(steps: readonly SwitchedStep[], settings: S
     return best;
   };
 
+  /** A channel's need and room (var) at a reading, and which way it wants to switch: the one rule every decision reads. */
+  const gauge = (channel: StepChannel, r: ChannelReading): { need: number; room: number; wants: 'in' | 'out' | null } => {
+    const p = Math.max(r.w, 0);
+    const need = r.var - p * tanTarget;
+    // Room before the upper PF limit: how much capacitance can go in without passing it.
+    const room = r.var - p * tanUpper;
+    const threshold = settings.responseShare * smallest.get(channel)! * 1000;
+    return { need, room, wants: need > threshold ? 'in' : (banded ? room < 0 : need < -threshold) ? 'out' : null };
+  };
+
+  /** The step a channel would switch out at this gauge, or −1. */
+  const goingOut = (channel: StepChannel, need: number, room: number): number => {
+    const connected = ofChannel.get(channel)!.filter((s) => on[s] === 1);
+    return banded ? pickRestoring(connected, -room) : pick(connected, -need);
+  };
+
+  /** A channel's wish at these readings: a move and the earliest time it may happen, or null (content, or no step can move yet). */
+  const wishOf = (channel: StepChannel, fromMs: number, r: ChannelReading): Wish | null => {
+    const { need, room, wants } = gauge(channel, r);
+    if (wants === 'in') {
+      const fitting = ofChannel.get(channel)!.filter((s) => !on[s] && (!banded || steps[s]!.kvar * 1000 <= room) && settings.responseShare * steps[s]!.kvar * 1000 < need);
+      if (!fitting.length) return null;
+      // The delay, and a step that went out must have discharged before it goes back in.
+      const freeAt = Math.min(...fitting.map((s) => changedAt[s]! + reconnectMs));
+      return { channel, going: 'in', dueMs: Math.max(fromMs + delayMs - inTimer.get(channel)!, freeAt) };
+    }
+    if (wants === 'out' && goingOut(channel, need, room) >= 0) return { channel, going: 'out', dueMs: fromMs + delayMs - outTimer.get(channel)! };
+    return null;
+  };
+
+  /** Runs every channel's timers on by `ms` under these readings (a channel that wants nothing resets its). */
+  const runTimers = (ms: number, readings: Map<StepChannel, ChannelReading>) => {
+    for (const channel of channels) {
+      const { wants } = gauge(channel, readings.get(channel)!);
+      inTimer.set(channel, wants === 'in' ? inTimer.get(channel)! + ms : 0);
+      outTimer.set(channel, wants === 'out' ? outTimer.get(channel)! + ms : 0);
+    }
+  };
+
+  const move = (wish: Wish, r: ChannelReading) => {
+    const { need, room } = gauge(wish.channel, r);
+    const now = wish.dueMs;
+    if (wish.going === 'in') {
+      const free = ofChannel.get(wish.channel)!.filter((s) => !on[s] && now - changedAt[s]! >= reconnectMs && (!banded || steps[s]!.kvar * 1000 <= room));
+      const s = pick(free, need);
+      on[s] = 1;
+      closings[s]!++;
+      changedAt[s] = now;
+      inTimer.set(wish.channel, 0);
+    } else {
+      const s = goingOut(wish.channel, need, room);
+      on[s] = 0;
+      openings[s]!++;
+      changedAt[s] = now;
+      outTimer.set(wish.channel, 0);
+    }
+  };
+
   return {
     steps,
     on,
     closings,
     openings,
-    observe(startMs, durationMs, readingOf) {
-      const now = startMs + durationMs;
+    advance(fromMs, untilMs, readingOf) {
+      const readings = new Map(channels.map((c) => [c, readingOf(c)]));
+      let first: Wish | null = null;
       for (const channel of channels) {
-        const r = readingOf(channel);
-        const p = Math.max(r.w, 0);
-        const need = r.var - p * tanTarget;
-        // Room before the upper PF limit: how much capacitance can go in without passing it.
-        const room = r.var - p * tanUpper;
-        const threshold = settings.responseShare * smallest.get(channel)! * 1000;
-        const mine = ofChannel.get(channel)!;
-        const overCorrected = banded ? room < 0 : need < -threshold;
-        if (need > threshold) {
-          outTimer.set(channel, 0);
-          const t = inTimer.get(channel)! + durationMs;
-          inTimer.set(channel, t);
-          if (t < delayMs) continue;
-          const free = mine.filter((s) => !on[s] && now - changedAt[s]! >= reconnectMs && (!banded || steps[s]!.kvar * 1000 <= room));
-          const s = pick(free, need);
-          if (s >= 0) {
-            on[s] = 1;
-            closings[s]!++;
-            changedAt[s] = now;
-            inTimer.set(channel, 0);
-          }
-        } else if (overCorrected) {
-          inTimer.set(channel, 0);
-          const t = outTimer.get(channel)! + durationMs;
-          outTimer.set(channel, t);
-          if (t < delayMs) continue;
-          const connected = mine.filter((s) => on[s] === 1);
-          const s = banded ? pickRestoring(connected, -room) : pick(connected, -need);
-          if (s >= 0) {
-            on[s] = 0;
-            openings[s]!++;
-            changedAt[s] = now;
-            outTimer.set(channel, 0);
-          }
-        } else {
-          inTimer.set(channel, 0);
-          outTimer.set(channel, 0);
-        }
+        const wish = wishOf(channel, fromMs, readings.get(channel)!);
+        if (wish && wish.dueMs <= untilMs && (!first || wish.dueMs < first.dueMs)) first = wish;
       }
+      runTimers((first?.dueMs ?? untilMs) - fromMs, readings);
+      if (!first) return null;
+      move(first, readings.get(first.channel)!);
+      return first.dueMs;
     },
     interrupt() {
       for (const c of channels) {

@@ -4,9 +4,10 @@
  * caller's solver (one board, or the bank's board in its installation), and what it changes.
  */
 import type { Board } from '../board/boardModel.js';
-import type { SwitchedStep, SwitchingSettings } from './bankController.js';
+import type { StepChannel, SwitchedStep, SwitchingSettings } from './bankController.js';
 import { maximumOf } from './intervalStatistics.js';
 import { PROFILE_DEFAULTS } from './profileDefaults.js';
+import { stepPlaceWords, switchingWithinIntervalWords } from './profileWording.js';
 import type { ProfileSpec } from './profileSpec.js';
 import type { BankRun } from './simulateBank.js';
 import { sizeBankSteps } from './sizeBankSteps.js';
@@ -87,11 +88,17 @@ export function bankOverProfile(input: BankOverProfileInput, options: Pick<Profi
       design: designed?.design ?? null,
       sizedFromProfile: source === 'profile',
       needKvar,
+      placeWords: Object.fromEntries([...new Set([...steps.map((x) => x.channel), ...Object.keys(needKvar ?? {})])].map((c) => [c, stepPlaceWords(board, c as StepChannel)])),
       steps: stepRuns,
       totalKvar: steps.reduce((s, x) => s + x.kvar, 0),
       fixedKvar: fixed.reduce((s, x) => s + x.kvar, 0),
       notSimulated: designed && (designed.notSimulated.length || designed.fixedNotSimulatedKvar) ? { outputs: designed.notSimulated, fixedKvar: designed.fixedNotSimulatedKvar } : null,
       settings: { ...rest, upperPf: upperPf ?? null },
+      withinInterval: {
+        intervalSeconds: input.intervalMs / 1000,
+        movesPerInterval: settings.delaySeconds > 0 ? Math.floor(input.intervalMs / 1000 / settings.delaySeconds) : null,
+        words: switchingWithinIntervalWords(input.intervalMs / 1000, settings.delaySeconds, settings.reconnectSeconds),
+      },
       operationsPerYearLimit: PROFILE_DEFAULTS.operationsPerYearLimit,
       contactorLifeOperations: PROFILE_DEFAULTS.contactorLifeOperations,
       yearsToContactorLife: busiest > 0 ? PROFILE_DEFAULTS.contactorLifeOperations / busiest : null,

@@ -3,7 +3,10 @@
  * board, so a column names a load by its name where only one board has a load
  * of that name, else as `<board>/<load>`; a metered phase total is `phase A`
  * at the main board or `<board>/phase A` at a sub-board. `profile.groups`
- * members are named the same way.
+ * members are named the same way. Those forms can meet (a load "Sub A/b" on one
+ * board, a load "b" on board "Sub A"), so `<board>//<load>` is kept for the
+ * board and load alone: a name holding "//" that is some board's load so written
+ * is read only that way, never as a load's own name.
  *
  * The plan is an ordinary ColumnPlan whose `board` lists every board's loads
  * in one row (named `<board>/<load>`), with the board each load sits on beside
@@ -38,24 +41,45 @@ export function flattenLoads(installation: Installation): { loads: BoardLoad[]; 
   return { loads, boards };
 }
 
-/** What a load name (bare or `<board>/<load>`) stands for among the flattened loads. */
-export function loadLookup(installation: Installation): (name: string) => number[] {
+/** Each flattened load's board and own name (the order of flattenLoads). */
+function placesOf(installation: Installation): { board: string; load: string }[] {
   const names = boardNamesOf(installation);
+  return [installation.main.loads, ...installation.subBoards.map((sb) => sb.loads)].flatMap((own, b) => own.map((l) => ({ board: names[b]!, load: l.name })));
+}
+
+/** What a load name (bare, `<board>/<load>` or `<board>//<load>`) stands for among the flattened loads. */
+export function loadLookup(installation: Installation): (name: string) => number[] {
   const byName = new Map<string, number[]>();
-  const add = (key: string, index: number) => {
-    const list = byName.get(key) ?? [];
+  const byBoard = new Map<string, number[]>();
+  const add = (map: Map<string, number[]>, key: string, index: number) => {
+    const list = map.get(key) ?? [];
     if (!list.includes(index)) list.push(index);
-    byName.set(key, list);
+    map.set(key, list);
   };
-  let index = 0;
-  [installation.main.loads, ...installation.subBoards.map((sb) => sb.loads)].forEach((own, b) =>
-    own.forEach((l) => {
-      add(l.name, index);
-      add(`${names[b]}/${l.name}`, index);
-      index++;
-    }),
-  );
-  return (name) => byName.get(name) ?? [];
+  placesOf(installation).forEach(({ board, load }, index) => {
+    add(byName, load, index);
+    add(byName, `${board}/${load}`, index);
+    add(byBoard, `${board}//${load}`, index);
+  });
+  // The `//` form first: it names a board and its load, whatever other loads are called.
+  return (name) => byBoard.get(name) ?? byName.get(name) ?? [];
+}
+
+/**
+ * The issue for a name that stands for several loads: each load it names, on its board, with the names
+ * that reach that load alone (its own name, `<board>/<load>`, and `<board>//<load>` where neither does).
+ */
+export function ambiguousLoadIssue(installation: Installation, lookup: (name: string) => number[], code: string, path: string, name: string, found: readonly number[]): InputIssue {
+  const places = placesOf(installation);
+  const each = found.map((l) => {
+    const { board, load } = places[l]!;
+    const alone = (candidate: string) => candidate !== name && lookup(candidate).length === 1 && lookup(candidate)[0] === l;
+    const simple = [load, `${board}/${load}`].filter(alone);
+    const ways = simple.length ? simple : [`${board}//${load}`].filter(alone);
+    const write = ways.length ? `write ${ways.map((w) => `"${w}"`).join(' or ')}` : 'no name reaches it alone';
+    return `load "${load}" on board "${board}" (${write})`;
+  });
+  return inputIssue(code, path, `one load; "${name}" names ${found.length}: ${each.slice(0, -1).join(', ')} and ${each[each.length - 1]}`, name);
 }
 
 /**
@@ -73,7 +97,7 @@ function installationResolver(installation: Installation, groups: Readonly<Recor
   const main = installation.main;
   const label = labellerOf(conventionsOf(main).phaseNames);
   const lookup = loadLookup(installation);
-  const loadsExpected = 'a load name on one board, "<board>/<load>", a group from profile.groups, or "phase A/B/C" at the main board ("<board>/phase A" at a sub-board; L1/L2/L3 also)';
+  const loadsExpected = 'a load name on one board, "<board>/<load>" (or "<board>//<load>"), a group from profile.groups, or "phase A/B/C" at the main board ("<board>/phase A" at a sub-board; L1/L2/L3 also)';
   const bankParts = new Set(bankPartIndices(installation));
   /** One load for a name, or null after an issue: none, several boards have it, or it is part of a bank in service. */
   const oneLoad = (name: string, path: string, expected: string, issues: InputIssue[]): number | null => {
@@ -85,10 +109,7 @@ function installationResolver(installation: Installation, groups: Readonly<Recor
     }
     if (found.length === 1) return found[0]!;
     if (found.length === 0) issues.push(inputIssue('unknown_target', path, expected, name));
-    else
-      issues.push(
-        inputIssue('ambiguous_target', path, `the load with its board, one of ${found.map((l) => `"${loads[l]!.name}"`).join(', ')} (several boards have a load "${name}")`, name),
-      );
+    else issues.push(ambiguousLoadIssue(installation, lookup, 'ambiguous_target', path, name, found));
     return null;
   };
   /** `phase A` (main board) or `<board>/phase A`: the board number and phase, or null when the name is no phase. */
@@ -116,7 +137,7 @@ function installationResolver(installation: Installation, groups: Readonly<Recor
       if (groups[name]) {
         const members: number[] = [];
         for (const [k, member] of groups[name]!.entries()) {
-          const l = oneLoad(member, `profile.groups.${name}[${k}]`, 'a load name on one board, or "<board>/<load>"', issues);
+          const l = oneLoad(member, `profile.groups.${name}[${k}]`, 'a load name on one board, or "<board>/<load>" (or "<board>//<load>")', issues);
           if (l === null) return null;
           members.push(l);
         }

@@ -70,7 +70,7 @@ export const profileBankSchema = z
 export const profileLimitsSchema = z
   .strictObject({
     unbalancePercent: positive.optional().describe('voltage unbalance threshold |V2|/|V1|, %; default 2'),
-    neutralA: positive.optional().describe('neutral current threshold, A; default the neutral rating, else the largest line rating'),
+    neutralA: positive.optional().describe('neutral current threshold, A; default the neutral rating (none where the neutral has no rating)'),
     voltageLowPercent: positive.optional().describe("lowest acceptable phase voltage, % of nominal; default the board's voltage limits (conventions.voltageLimits, or the board's own in an installation)"),
     voltageHighPercent: positive.optional().describe("highest acceptable phase voltage, % of nominal; default the board's voltage limits (conventions.voltageLimits, or the board's own in an installation)"),
   })

@@ -1,6 +1,41 @@
+import type { Board } from '../board/boardModel.js';
+import { conventionsOf } from '../board/conventions/boardConventions.js';
+import { labellerOf } from '../board/conventions/phaseNames.js';
+import type { StepChannel } from './bankController.js';
+
 /** Cautions printed with every profile result. */
 export const PROFILE_CAUTIONS: readonly string[] = [
   'Figures are computed from the interval data and the board model; logger accuracy, CT ratios and clock errors carry straight through.',
   'A neutral that carries more than its rating in any interval overheats in service; check conductor sizing against local wiring rules.',
   'Capacitor banks store charge after switching off: reconnection before discharge, leading power factor at light load, and resonance with the supply are hazards. Installation and settings are for licensed practitioners under local codes.',
 ];
+
+/**
+ * What a simulated bank assumes inside an interval, where the interval length matters: the data gives
+ * each interval's average only, so the load is taken as steady through it.
+ */
+export function switchingWithinIntervalWords(intervalSeconds: number, delaySeconds: number, reconnectSeconds: number): string {
+  const t = `${intervalSeconds} s intervals`;
+  if (delaySeconds === 0)
+    return `each interval's load is taken as steady through it; with no switching delay the controller settles at the start of each of the ${t} (a step back in only after its ${reconnectSeconds} s discharge)`;
+  const moves = Math.floor(intervalSeconds / delaySeconds);
+  if (intervalSeconds <= delaySeconds)
+    return `each interval's load is taken as steady through it; with ${t} and a ${delaySeconds} s delay the controller makes at most one move per interval, shown from the interval after it`;
+  return `each interval's load is taken as steady through it; with ${t} and a ${delaySeconds} s delay the controller makes up to ${moves} moves within one (a step back in only after its ${reconnectSeconds} s discharge), and the interval shows the steps in service for most of it`;
+}
+
+/**
+ * Where a simulated step sits, in the board's words (simulateBank places them): a three-phase step on a
+ * three-phase board; on a split-phase (or single-phase) board the board-wide step is a capacitor from each
+ * line to the neutral, so it is said so, never "three-phase"; a step across two lines is line to line.
+ */
+export function stepPlaceWords(board: Board, channel: StepChannel): string {
+  const label = labellerOf(conventionsOf(board).phaseNames);
+  const threePhase = board.phases.length === 3;
+  if (channel.includes('-')) return `across ${label(channel)}`;
+  if (channel === 'ABC') {
+    if (threePhase) return 'three-phase';
+    return board.phases.length === 1 ? 'line to neutral' : `line-to-neutral on ${board.phases.map(label).join(' and ')}`;
+  }
+  return threePhase ? `on phase ${label(channel)}` : `line-to-neutral on ${label(channel)}`;
+}

@@ -1,7 +1,10 @@
 /**
- * An automatic bank over the profile: each interval is solved with the steps
- * that are connected, the controller reads the result and switches for the
- * next interval. Steps are constant-impedance capacitors (output ∝ V², so the
+ * An automatic bank over the profile. Each interval's load is taken as steady
+ * through the interval; the controller reads the board solved with the steps
+ * connected and switches when its delay has run and a step's discharge allows,
+ * the board solved again after each move, so on data coarser than the delay it
+ * settles within the interval (up to interval ÷ delay moves) as a real one
+ * would. The interval is shown with the steps in service for most of it. Steps are constant-impedance capacitors (output ∝ V², so the
  * voltage they raise is in the solve): three-phase steps as a star to the
  * neutral on a board with one, else as a delta; single-phase steps phase to neutral
  * or across two lines.
@@ -102,7 +105,7 @@ export function simulateBank(input: SimulateBankInput): BankRun {
 
 /**
  * The switching loop on any solver: each interval solved with the steps connected, the controller
- * reading the board's figures and switching for the next interval.
+ * reading the board's figures and switching within the interval as its delay allows (see the file's head).
  * @param prepare the solver, given the edges the steps need
  */
 export function switchBank(input: SwitchBankInput, prepare: (extraEdges: BatchEdge[]) => BankSolver): BankRun {
@@ -124,39 +127,80 @@ export function switchBank(input: SwitchBankInput, prepare: (extraEdges: BatchEd
   const controller = createBankController(steps, input.settings);
   const powers = new Float64Array(solver.edgeCount * 6);
   const phaseIndex = new Map(board.phases.map((p, k) => [p, k]));
-  for (let i = 0; i < n; i++) {
+  // A controller that never waits (delay 0) could otherwise trade steps back and forth without end.
+  const moveCap = 4 * steps.length + 8;
+
+  /** Solves interval i with the steps set in `on` (and the fixed part) connected. */
+  const solveWith = (i: number, on: Uint8Array): number => {
     solver.powersAt(i, powers);
     let kvar = 0;
     for (let s = 0; s < steps.length; s++) {
-      if (!controller.on[s]) continue;
+      if (!on[s]) continue;
       kvar += steps[s]!.kvar;
       // A capacitor draws −jQ at nominal voltage (load convention), all of it constant impedance.
       for (const { e, share } of stepSlots[s]!) powers[e * 6 + 1] = powers[e * 6 + 1]! - steps[s]!.kvar * 1000 * share;
     }
-    connectedKvar[i] = kvar;
     for (let f = 0; f < fixed.length; f++)
       for (const { e, share } of stepSlots[steps.length + f]!) powers[e * 6 + 1] = powers[e * 6 + 1]! - fixed[f]!.kvar * 1000 * share;
     solver.solve(powers, i);
+    return kvar;
+  };
+
+  const readingAt = (i: number) => (channel: StepChannel) => {
+    if (channel === 'ABC') {
+      let w = 0;
+      let q = 0;
+      for (let k = 0; k < board.phases.length; k++) {
+        w += read.phaseW[k]![i]!;
+        q += read.phaseVar[k]![i]!;
+      }
+      return { w, var: q };
+    }
+    if (isLinePair(channel)) {
+      // A step across two lines: its output is shared by those two lines, so it answers to their sum.
+      const a = phaseIndex.get(channel[0] as PhaseId)!;
+      const b = phaseIndex.get(channel[2] as PhaseId)!;
+      return { w: read.phaseW[a]![i]! + read.phaseW[b]![i]!, var: read.phaseVar[a]![i]! + read.phaseVar[b]![i]! };
+    }
+    const k = phaseIndex.get(channel)!;
+    return { w: read.phaseW[k]![i]!, var: read.phaseVar[k]![i]! };
+  };
+
+  for (let i = 0; i < n; i++) {
     if (i > 0 && input.utcMs[i]! - input.utcMs[i - 1]! > input.intervalMs) controller.interrupt();
-    controller.observe(input.utcMs[i]!, input.intervalMs, (channel) => {
-      if (channel === 'ABC') {
-        let w = 0;
-        let q = 0;
-        for (let k = 0; k < board.phases.length; k++) {
-          w += read.phaseW[k]![i]!;
-          q += read.phaseVar[k]![i]!;
-        }
-        return { w, var: q };
-      }
-      if (isLinePair(channel)) {
-        // A step across two lines: its output is shared by those two lines, so it answers to their sum.
-        const a = phaseIndex.get(channel[0] as PhaseId)!;
-        const b = phaseIndex.get(channel[2] as PhaseId)!;
-        return { w: read.phaseW[a]![i]! + read.phaseW[b]![i]!, var: read.phaseVar[a]![i]! + read.phaseVar[b]![i]! };
-      }
-      const k = phaseIndex.get(channel)!;
-      return { w: read.phaseW[k]![i]!, var: read.phaseVar[k]![i]! };
-    });
+    const start = input.utcMs[i]!;
+    const end = start + input.intervalMs;
+    // The load is taken as steady through the interval (its average is all the data says): the controller
+    // watches it, moves when its delay and the steps' discharge allow, and each move is solved again.
+    let kvar = solveWith(i, controller.on);
+    const reading = readingAt(i);
+    let before = controller.on.slice();
+    let at = controller.advance(start, end, reading);
+    if (at === null) {
+      // No move: the common case, the interval as solved.
+      connectedKvar[i] = kvar;
+      continue;
+    }
+    const held = new Map<string, { on: Uint8Array; ms: number; kvar: number }>();
+    let clock = start;
+    for (let moves = 1; ; moves++) {
+      // `before` held from `clock` until the move at `at` (or to the interval's end).
+      const key = before.join('');
+      const entry = held.get(key) ?? { on: before, ms: 0, kvar };
+      entry.ms += (at ?? end) - clock;
+      held.set(key, entry);
+      if (at === null) break;
+      clock = at;
+      kvar = solveWith(i, controller.on);
+      before = controller.on.slice();
+      at = moves < moveCap ? controller.advance(clock, end, reading) : null;
+    }
+    // The interval is shown with the steps in service for most of it (the first such on a tie); the
+    // controller goes on from where it ended.
+    let shown: { on: Uint8Array; ms: number; kvar: number } | undefined;
+    for (const entry of held.values()) if (!shown || entry.ms > shown.ms) shown = entry;
+    if (shown!.on.join('') !== controller.on.join('')) solveWith(i, shown!.on);
+    connectedKvar[i] = shown!.kvar;
   }
   return { figures, ...(input.meter ? { meterFigures: input.meter } : {}), connectedKvar, closings: [...controller.closings], openings: [...controller.openings], path: solver.path };
 }

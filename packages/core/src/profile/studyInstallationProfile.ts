@@ -28,7 +28,7 @@ import { recordInterval, type IntervalFigures } from './solveBatch.js';
 import { profileClock, resolveLimits, type ProfileBankResult, type ProfileStudyOptions } from './studyProfile.js';
 import { summariseFigures, type ProfileSummary, type ResolvedLimits, type SummaryContext } from './summariseFigures.js';
 import { PROFILE_CAUTIONS } from './profileWording.js';
-import { clearInstallationRoundOff } from './installationRoundOff.js';
+import { clearRoundOff, conductorFloorA } from './intervalRoundOff.js';
 import { listedBanksInService, type ListedBankInService } from '../analysis/banksInServiceWords.js';
 
 export interface InstallationProfileInput {
@@ -147,20 +147,23 @@ export function studyInstallationProfile(input: InstallationProfileInput, option
   const before = allocateBoardFigures(installation, n);
   const net = compileInstallationBatch(installation, input.loads, input.loadBoards, input.drivers);
   solveInstallationBatch(net, input.columns, before, { onProgress: (d) => options.onProgress?.('solve', d, n) });
-  clearInstallationRoundOff(before);
+  const nominalV = installation.main.nominalLineToNeutralV;
+  clearRoundOff(before, conductorFloorA(boards), nominalV);
 
   const meter = meterOf(boards[bankAt]!, input, options);
   // At the origin the circuit gains a load-free board at the supply's terminals (board 0): every board one on.
   const frame = meter?.frame ?? installation;
   const shift = frame === installation ? 0 : 1;
   const frameBoards = input.loadBoards.map((b) => b + shift);
+  // The origin's service cable may be the circuit's stiffest conductor.
+  const frameFloorA = conductorFloorA(shift ? [boardOfInstallation(frame, 0), ...boards] : boards);
   let meterBefore: IntervalFigures | undefined;
   let meterContext: SummaryContext | undefined;
   if (meter) {
     if (shift) {
       const framed = allocateBoardFigures(frame, n);
       solveInstallationBatch(compileInstallationBatch(frame, input.loads, frameBoards, input.drivers), input.columns, framed);
-      clearInstallationRoundOff(framed);
+      clearRoundOff(framed, frameFloorA, nominalV);
       meterBefore = framed[0]!;
       // The origin is priced as the supply is: the main board's band and tariff, the origin's own (unrated) conductors.
       meterContext = { ...contexts[0]!, board: boardOfInstallation(frame, 0) };
@@ -202,7 +205,7 @@ export function studyInstallationProfile(input: InstallationProfileInput, option
             },
           };
         });
-        clearInstallationRoundOff(figures);
+        clearRoundOff(figures, frameFloorA, nominalV);
         return switched;
       },
     },

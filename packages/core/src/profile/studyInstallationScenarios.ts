@@ -14,7 +14,8 @@ import { InputError, inputIssue, type InputIssue } from '../errors.js';
 import { bankPartIndices, listedBanksInService, type ListedBankInService } from '../analysis/banksInServiceWords.js';
 import { boardOfInstallation } from '../network/installationModel.js';
 import { NOISE_FLOOR_RELATIVE } from '../analysis/noiseFloor.js';
-import { bankPartIssue, boardNamesOf, flattenLoads, loadLookup } from './installationColumns.js';
+import { clearRoundOff, conductorFloorA } from './intervalRoundOff.js';
+import { ambiguousLoadIssue, bankPartIssue, boardNamesOf, flattenLoads, loadLookup } from './installationColumns.js';
 import { allocateBoardFigures, compileInstallationBatch, solveInstallationBatch } from './installationBatch.js';
 import type { ProfileSpec } from './profileSpec.js';
 import { asPrinted } from '../board/conventions/voltageLimits.js';
@@ -44,7 +45,7 @@ export interface InstallationScenarioResult {
   readonly banksInService: readonly ListedBankInService[];
 }
 
-const EXPECTED_LOAD = 'a load name on one board, "<board>/<load>", or a group from profile.groups';
+const EXPECTED_LOAD = 'a load name on one board, "<board>/<load>" (or "<board>//<load>"), or a group from profile.groups';
 
 /**
  * @throws {InputError} naming the field (`profile.scenarios[k].loads.<name>`, `profile.groups.<group>[i]`) of a
@@ -70,12 +71,12 @@ export function studyInstallationScenarios(installation: Installation, profile: 
     }
     if (found.length === 1) return found[0]!;
     if (found.length === 0) issues.push(inputIssue('unknown_load', path, expected, name));
-    else issues.push(inputIssue('ambiguous_load', path, `the load with its board, one of ${found.map((l) => `"${flat.loads[l]!.name}"`).join(', ')} (several boards have a load "${name}")`, name));
+    else issues.push(ambiguousLoadIssue(installation, lookup, 'ambiguous_load', path, name, found));
     return null;
   };
   const members = new Map<string, number[]>();
   for (const [group, names] of Object.entries(groups)) {
-    const found = names.map((m, i) => oneLoad(m, `profile.groups.${group}[${i}]`, 'a load name on one board, or "<board>/<load>"'));
+    const found = names.map((m, i) => oneLoad(m, `profile.groups.${group}[${i}]`, 'a load name on one board, or "<board>/<load>" (or "<board>//<load>")'));
     if (found.every((l): l is number => l !== null)) members.set(group, found);
   }
   const named = scenarios.map((s, k) =>
@@ -95,6 +96,7 @@ export function studyInstallationScenarios(installation: Installation, profile: 
   const figures = allocateBoardFigures(installation, scenarios.length);
   solveInstallationBatch(compileInstallationBatch(installation, flat.loads, flat.boards, drivers), columns, figures);
   const names = boardNamesOf(installation);
+  clearRoundOff(figures, conductorFloorA(names.map((_, b) => boardOfInstallation(installation, b))), installation.main.nominalLineToNeutralV);
   // A board with nothing on in a scenario still shows round-off power (about 1e-13 W); as the general solve
   // does with currents (analysis/noiseFloor.ts), power below that fraction of the supply's largest is none.
   let largest = 0;

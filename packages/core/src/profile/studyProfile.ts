@@ -14,6 +14,7 @@ import type { SequenceReport } from './checkIntervalSequence.js';
 import { PROFILE_DEFAULTS } from './profileDefaults.js';
 import type { ProfileSpec } from './profileSpec.js';
 import { simulateBank } from './simulateBank.js';
+import { clearRoundOff, conductorFloorA } from './intervalRoundOff.js';
 import { bankOverProfile } from './bankOverProfile.js';
 import { allocateFigures, solveBatch, type BatchSolveOptions, type IntervalFigures } from './solveBatch.js';
 import { summariseFigures, type ProfileSummary, type ResolvedLimits, type SummaryContext } from './summariseFigures.js';
@@ -69,6 +70,8 @@ export interface ProfileBankResult {
   readonly design: BankDesign | null;
   readonly sizedFromProfile: boolean;
   readonly needKvar: Readonly<Record<string, number>> | null;
+  /** Each channel of the steps and the need, in the board's words ("three-phase", "line-to-neutral on L1 and L2", "across L1-L2"). */
+  readonly placeWords: Readonly<Record<string, string>>;
   readonly steps: readonly BankStepRun[];
   /** Switched steps' kvar in all (the fixed part not included). */
   readonly totalKvar: number;
@@ -86,6 +89,11 @@ export interface ProfileBankResult {
     readonly delaySeconds: number;
     readonly reconnectSeconds: number;
   };
+  /**
+   * The switching inside an interval, where its length matters: the load taken as steady through each
+   * interval, at most floor(interval ÷ delay) moves in it (null: no delay, the controller settles at once).
+   */
+  readonly withinInterval: { readonly intervalSeconds: number; readonly movesPerInterval: number | null; readonly words: string };
   readonly operationsPerYearLimit: number;
   readonly contactorLifeOperations: number;
   /** Years until the busiest step's contactor reaches its typical life. */
@@ -141,7 +149,8 @@ export function resolveLimits(board: Board, spec: ProfileSpec | undefined): Reso
   const fromProfile = l?.voltageLowPercent !== undefined || l?.voltageHighPercent !== undefined;
   return {
     unbalancePercent: l?.unbalancePercent ?? PROFILE_DEFAULTS.unbalancePercent,
-    neutralA: l?.neutralA ?? board.neutralRatingA ?? board.lineRatingA,
+    // An unrated neutral has no limit: a line's rating says nothing of the neutral's conductor.
+    neutralA: l?.neutralA ?? board.neutralRatingA,
     voltageLowPercent: l?.voltageLowPercent ?? 100 - own.underPercent,
     voltageHighPercent: l?.voltageHighPercent ?? 100 + own.overPercent,
     voltageLimitsFrom: fromProfile ? 'profile.limits' : own.preset,
@@ -210,6 +219,9 @@ export function studyProfile(input: ProfileStudyInput, options: ProfileStudyOpti
     const net = compileBatchNetwork(board, input.drivers);
     path = solveBatch(net, input.columns, before, { ...options.solve, onProgress: (d) => options.onProgress?.('solve', d, n) }).path;
   }
+  // Round-off is not data: an idle interval has no current, power or power factor (figures solved elsewhere too).
+  const floorA = conductorFloorA([board]);
+  clearRoundOff([before], floorA, board.nominalLineToNeutralV);
   const beforeSummary = summariseFigures(before, ctx);
 
   // On a board file the controller reads the board's own incomer; a metering point upstream needs the installation's circuit.
@@ -227,8 +239,11 @@ export function studyProfile(input: ProfileStudyInput, options: ProfileStudyOpti
       label,
       ...(input.profile ? { profile: input.profile } : {}),
       summarise: (f) => summariseFigures(f, ctx),
-      simulate: (steps, fixed, settings) =>
-        simulateBank({ board, drivers: input.drivers, columns: input.columns, utcMs: input.utcMs, intervalMs: input.intervalMs, steps, fixed, settings, ...(options.solve ? { solve: options.solve } : {}) }),
+      simulate: (steps, fixed, settings) => {
+        const run = simulateBank({ board, drivers: input.drivers, columns: input.columns, utcMs: input.utcMs, intervalMs: input.intervalMs, steps, fixed, settings, ...(options.solve ? { solve: options.solve } : {}) });
+        clearRoundOff([run.figures], floorA, board.nominalLineToNeutralV);
+        return run;
+      },
     },
     options,
   );

@@ -14,6 +14,7 @@ import { ratedPower } from './columnPlan.js';
 import type { ProfileSpec, ScenarioSpec } from './profileSpec.js';
 import { allocateFigures, solveBatch, type IntervalFigures } from './solveBatch.js';
 import { billingPowerFactor } from './billingPowerFactor.js';
+import { clearRoundOff, conductorFloorA } from './intervalRoundOff.js';
 
 export interface ScenarioReading {
   readonly name: string;
@@ -25,7 +26,8 @@ export interface ScenarioReading {
   readonly unbalancePercent: number | null;
   readonly kW: number;
   readonly kvar: number;
-  readonly pf: number;
+  /** Null where the scenario draws no power (a power factor of nothing is no figure). */
+  readonly pf: number | null;
 }
 
 /** A board's readings in every scenario, and its year weighed by their hours. */
@@ -99,7 +101,7 @@ export function readBoardScenarios(board: Board, figures: IntervalFigures, scena
       unbalancePercent: board.phases.length === 3 ? figures.unbalancePercent[k]! : null,
       kW: w / 1000,
       kvar: q / 1000,
-      pf: Math.hypot(w, q) === 0 ? 1 : Math.abs(w) / Math.hypot(w, q),
+      pf: Math.hypot(w, q) === 0 ? null : Math.abs(w) / Math.hypot(w, q),
     };
   });
   const kWhImport = readings.reduce((a, r) => a + Math.max(r.kW, 0) * r.hours, 0);
@@ -136,6 +138,7 @@ export function studyScenarios(board: Board, profile: ProfileSpec): ScenarioResu
   });
   const figures = allocateFigures(scenarios.length, board.phases.length);
   const { path } = solveBatch(compileBatchNetwork(board, drivers), columns, figures);
+  clearRoundOff([figures], conductorFloorA([board]), board.nominalLineToNeutralV);
   const { scenarios: readings, ...year } = readBoardScenarios(board, figures, scenarios, hours);
   // Keys in the order the JSON has always had them.
   return { board: board.name, path, scenarios: readings, hours: hours.reduce((a, b) => a + b, 0), ...year, phaseNames: conventionsOf(board).phaseNames };

@@ -37,7 +37,8 @@ export interface WorstInterval {
   readonly at: string;
   readonly neutralA: number;
   readonly maxLineA: number;
-  readonly unbalancePercent: number;
+  /** |V2|/|V1| at the board, %; null on a board of fewer than three phases, where sequence components do not exist. */
+  readonly unbalancePercent: number | null;
 }
 
 export interface ResolvedLimits {
@@ -160,7 +161,7 @@ export function summariseFigures(f: IntervalFigures, ctx: SummaryContext): Profi
     at: ctx.label(i),
     neutralA: f.neutralA[i]!,
     maxLineA: Math.max(...f.lineA.map((col) => col[i]!)),
-    unbalancePercent: f.unbalancePercent[i]!,
+    unbalancePercent: board.phases.length === 3 ? f.unbalancePercent[i]! : null,
   });
   const maxLine = new Float64Array(n);
   for (let i = 0; i < n; i++) for (const col of f.lineA) if (col[i]! > maxLine[i]!) maxLine[i] = col[i]!;

@@ -81,6 +81,7 @@ function bankBlock(b: ProfileBankResult, where = ''): ReportBlock {
       ['Hours leading with the bank', fixed(b.after.leadingHours, 1)],
       ['Largest voltage rise from the bank', `${fixed(b.voltageRisePercent, 2)} % (${b.voltageRiseAt})`],
       ['Busiest contactor reaches its typical life in', b.yearsToContactorLife === null ? '—' : `${fixed(b.yearsToContactorLife, 1)} years`],
+      ['Switching within an interval', b.withinInterval.words],
     ],
   };
 }
