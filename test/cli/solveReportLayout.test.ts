@@ -113,3 +113,25 @@ describe('one voltage-drop definition', () => {
     expect(result.loads[0]!.branches[0]!.voltagePercent).toBeCloseTo(a.voltagePercent, 9);
   });
 });
+
+describe('a board of milliampere loads', () => {
+  // A control cabinet's indicator lamps and a clock (invented): real currents of a few milliamperes, printed as 0.0 A.
+  const text = renderSolveReport(
+    solveBoard({
+      name: 'control cabinet',
+      supply: { voltage: '400/230', frequencyHz: 50, transformer: { kVA: 1000, impedancePercent: 6, xOverR: 10 } },
+      loads: [
+        { name: 'indicator', connection: 'A-N', kW: 0.000001, pf: 0.5 },
+        { name: 'clock', connection: 'B-N', kW: 0.0000001 },
+        { name: 'sensor', connection: 'C-A', kvar: 0.000001, kW: 0 },
+      ],
+    }),
+  );
+
+  it('shows no power factor beside 0.00 kVA and no current ratios beside 0.0 A', () => {
+    expect(text).toMatch(/^ {2}vector {2}\|ΣS\| +0\.00 +-$/m);
+    expect(text).toMatch(/^ {2}effective {2}3·Ve·Ie \(IEEE 1459\) +0\.00 +-$/m);
+    expect(text).toContain('current |I2|/|I1|, |I0|/|I1|               -, - (line currents below 0.05 A)');
+    expect(text).not.toMatch(/\b0\.3\d\d\b/);
+  });
+});

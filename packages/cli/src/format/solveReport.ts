@@ -197,21 +197,31 @@ function sequenceBlock(r: BoardResult): string {
     `zero-sequence voltage |V0|/|V1|            ${fixed(u.zeroSequenceVoltagePercent, 2)} %`,
     `line-voltage unbalance rate (NEMA MG 1)    ${fixed(u.lineVoltageRatePercent, 2)} %`,
     `phase-voltage unbalance rate (IEEE)        ${fixed(u.phaseVoltageRatePercent, 2)} %`,
-    `current |I2|/|I1|, |I0|/|I1|               ${fixed(u.currentNegativePercent, 1)} %, ${fixed(u.currentZeroPercent, 1)} %`,
-    `line-current deviation from average        ${fixed(u.currentDeviationPercent, 1)} %`,
+    // Ratios of currents the tables print as 0.0 A (a few milliamperes) would contradict them: shown as "-".
+    ...(printsAsNoCurrent(r)
+      ? [`current |I2|/|I1|, |I0|/|I1|               -, - (line currents below 0.05 A)`, `line-current deviation from average        -`]
+      : [
+          `current |I2|/|I1|, |I0|/|I1|               ${fixed(u.currentNegativePercent, 1)} %, ${fixed(u.currentZeroPercent, 1)} %`,
+          `line-current deviation from average        ${fixed(u.currentDeviationPercent, 1)} %`,
+        ]),
     `three-phase motor derating (NEMA MG 1)     ${u.motorDeratingFactor === null ? 'above 5 %: operation not recommended' : `× ${fixed(u.motorDeratingFactor, 2)}`}`,
   ];
   return `${table}\n${lines.map((l) => `  ${l}`).join('\n')}`;
 }
 
+/** Every line current prints as 0.0 A: ratios and power factors of such currents are not shown beside them. */
+const printsAsNoCurrent = (r: BoardResult): boolean => r.phases.every((p) => fixed(p.current.magnitude, 1) === '0.0');
+
 function powerFactorBlock(r: BoardResult): string {
   const pf = r.powerFactor;
+  // A PF beside an apparent power that prints as 0.00 kVA is not shown, as a line's PF cell is not.
+  const pfOf = (x: { kVA: number; pf: number }) => (fixed(x.kVA, 2) === '0.00' ? '-' : fixed(x.pf, 3));
   const rows: string[][] = [
-    ['vector  |ΣS|', fixed(pf.vector.kVA, 2), fixed(pf.vector.pf, 3)],
-    ['arithmetic  Σ|V||I|', fixed(pf.arithmetic.kVA, 2), fixed(pf.arithmetic.pf, 3)],
+    ['vector  |ΣS|', fixed(pf.vector.kVA, 2), pfOf(pf.vector)],
+    ['arithmetic  Σ|V||I|', fixed(pf.arithmetic.kVA, 2), pfOf(pf.arithmetic)],
   ];
-  if (pf.effective) rows.push(['effective  3·Ve·Ie (IEEE 1459)', fixed(pf.effective.kVA, 2), fixed(pf.effective.pf, 3)]);
-  if (pf.positiveSequence) rows.push(['positive sequence  3·V1·I1', fixed(pf.positiveSequence.kVA, 2), fixed(pf.positiveSequence.pf, 3)]);
+  if (pf.effective) rows.push(['effective  3·Ve·Ie (IEEE 1459)', fixed(pf.effective.kVA, 2), pfOf(pf.effective)]);
+  if (pf.positiveSequence) rows.push(['positive sequence  3·V1·I1', fixed(pf.positiveSequence.kVA, 2), pfOf(pf.positiveSequence)]);
   // S_U1 is an apparent power with no power factor of its own: a row of the table, its PF cell empty.
   if (pf.unbalancedKVA !== null) rows.push(['unbalanced  S_U1 (IEEE 1459)', fixed(pf.unbalancedKVA, 2), '']);
   return renderTable([{ header: 'definition', align: 'left' }, { header: 'kVA' }, { header: 'PF' }], rows);
