@@ -69,10 +69,10 @@ function fit(text: string, widthPx: number, fontSize: number): string {
 const text = (x: number, y: number, size: number, content: string, extra: Readonly<Record<string, string | number>> = {}) =>
   `<text${attrs({ class: 'tree-text', x, y, 'font-size': size, fill: INK, ...extra })}>${escapeXml(content)}</text>`;
 
-/** The feeder's label lines: line currents, then neutral current and drop. */
+/** The feeder's label lines: line currents, then neutral current and drop; amperes to 0.1 A as the report's tables print them (122.5, not 123; 0.0, not 0.000). */
 function feederLines(f: FeederReading, phaseName: (p: string) => string): string[] {
-  const currents = `${f.lines.map((l) => `${phaseName(l.phase)} ${sig3(l.current.magnitude)}`).join(' · ')} A`;
-  const neutral = f.neutral ? (f.neutral.open ? 'N open · ' : `N ${sig3(f.neutral.current.magnitude)} A · `) : '';
+  const currents = `${f.lines.map((l) => `${phaseName(l.phase)} ${fixed(l.current.magnitude, 1)}`).join(' · ')} A`;
+  const neutral = f.neutral ? (f.neutral.open ? 'N open · ' : `N ${fixed(f.neutral.current.magnitude, 1)} A · `) : '';
   return [currents, `${neutral}drop ${fixed(f.voltageDropPercent, 2)} %`];
 }
 
