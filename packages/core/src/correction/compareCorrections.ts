@@ -22,6 +22,7 @@ import type { CorrectionReport, CorrectionStatus } from './correctionResult.js';
 import { arrangementNames, comparisonWording } from './correctionWording.js';
 import { balanceWorsening } from './balanceWorsening.js';
 import { assertViableBoard } from '../analysis/viableOperatingPoint.js';
+import { assertBoardModel } from '../board/modelGuards.js';
 
 /** One arrangement's outcome in figures a reader compares. */
 export interface ArrangementFigures {
@@ -128,6 +129,7 @@ const STATUS_RANK: Record<CorrectionStatus, number> = {
  * c.why         //=> 'delta bank: meets the target at the least cost …'
  */
 export function compareCorrections(board: Board, spec: unknown): CorrectionComparison {
+  assertBoardModel(board);
   const parsed = parseCorrectionSpec(spec, board);
   assertViableBoard(board);
   const outcomes = arrangementsFor(board).map((arrangement): ArrangementOutcome => {
