@@ -124,7 +124,7 @@ describe('--measured-at: the target judged away from the bank board', () => {
     expect(r.stdout).toContain('the origin of the installation');
     const installation = normaliseInstallation(parseInstallation(readBoardText(text))).installation;
     const m = correctInstallation(installation, { arrangement: 'star-bank', target: { pf: 0.97, measuredAt: 'origin' } }, { board: 'Press shop' }).report.verification.metering!;
-    expect(r.stdout).toContain(`${m.powerFactor.vector.before.toFixed(3)} → ${m.powerFactor.vector.after.toFixed(3)}`);
+    expect(r.stdout).toContain(`${m.powerFactor.vector!.before.toFixed(3)} → ${m.powerFactor.vector!.after.toFixed(3)}`);
   });
 
   it('on a single-board file, origin takes in the service cable', () => {

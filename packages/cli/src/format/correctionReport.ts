@@ -192,8 +192,9 @@ function boardLines(v: CorrectionVerification): string {
   const out: string[] = [];
   const pf = v.powerFactor;
   if (pf.effective) out.push(`PF effective (IEEE 1459)     ${arrow(pf.effective, 3)}`);
-  out.push(`PF vector                    ${arrow(pf.vector, 3)}`);
-  out.push(`PF arithmetic                ${arrow(pf.arithmetic, 3)}`);
+  // A board carrying no power has no PF (null): the row says so rather than a placeholder.
+  out.push(`PF vector                    ${pf.vector ? arrow(pf.vector, 3) : '-'}`);
+  out.push(`PF arithmetic                ${pf.arithmetic ? arrow(pf.arithmetic, 3) : '-'}`);
   if (pf.positiveSequence) out.push(`PF positive sequence         ${arrow(pf.positiveSequence, 3)}`);
   if (v.neutralCurrentA) out.push(`neutral current              ${arrow(v.neutralCurrentA, 1, ' A')}`);
   if (v.unbalance) {
@@ -356,8 +357,8 @@ export function renderNothingToAdd(r: CorrectionReport, studied: string): string
     ? ['no line current, so no power factor']
     : [
         ...(pf.effective ? [`PF effective (IEEE 1459) ${fixed(pf.effective.before, 3)}`] : []),
-        `PF vector ${fixed(pf.vector.before, 3)}`,
-        `PF arithmetic ${fixed(pf.arithmetic.before, 3)}`,
+        ...(pf.vector ? [`PF vector ${fixed(pf.vector.before, 3)}`] : []),
+        ...(pf.arithmetic ? [`PF arithmetic ${fixed(pf.arithmetic.before, 3)}`] : []),
         ...(pf.positiveSequence ? [`PF positive sequence ${fixed(pf.positiveSequence.before, 3)}`] : []),
       ];
   if (v.neutralCurrentA) board.push(`neutral ${fixed(v.neutralCurrentA.before, 1)} A`);

@@ -10,7 +10,7 @@ export function meteringSection(m: MeteringReadings, lines: string): string {
   const pf = m.powerFactor;
   const rows = [
     ...(pf.effective ? [`PF effective (IEEE 1459)     ${arrow(pf.effective, 3)}`] : []),
-    `PF vector                    ${arrow(pf.vector, 3)}`,
+    `PF vector                    ${pf.vector ? arrow(pf.vector, 3) : '-'}`,
     ...(pf.positiveSequence ? [`PF positive sequence         ${arrow(pf.positiveSequence, 3)}`] : []),
     `through it                   ${arrow(m.kW, 2, ' kW')}, ${arrow(m.kvar, 2, ' kvar')} (+ lagging)`,
   ];

@@ -1,5 +1,5 @@
 /** BoardResult → the human-readable report of `trivar solve`. */
-import { bandVoltsWords, bandWords, judgedNominals, labelIn, regionWords, type BoardResult } from '@trivar/core';
+import { bandVoltsWords, bandWords, judgedNominals, labelIn, regionWords, signedPfText, assumedPfNote, type BoardResult } from '@trivar/core';
 import { fixed, renderTable, renderTableWithin, section } from './textTable.js';
 import { REPORT_WIDTH, wrapText } from './wrapText.js';
 import { exportSentence, isExport, pfCell, varWords } from './powerFlowWords.js';
@@ -153,7 +153,7 @@ function loadTable(r: BoardResult): string {
     notes.push(
       `${asDelta.join(', ')}: a floating star of constant-power or constant-current elements has no unique star-point position, so it is solved as its equivalent delta (its rating shared by the three line-to-line pairs; V is line-to-line). Rate it in ohms or as constant-impedance to see its star point.`,
     );
-  if (r.loads.some((l) => l.pfAssumed)) notes.push('*: pf not given in the file, taken as 1 (a resistive load).');
+  if (r.loads.some((l) => l.pfAssumed)) notes.push(assumedPfNote(r.loads.filter((l) => l.pfAssumed).map((l) => l.kW)));
   for (const l of r.loads) {
     const sentence = exportSentence(`"${l.name}"`, l, 'generates');
     if (sentence) notes.push(sentence);
@@ -207,14 +207,20 @@ function sequenceBlock(r: BoardResult): string {
 function powerFactorBlock(r: BoardResult): string {
   const pf = r.powerFactor;
   const rows: string[][] = [
-    ['vector  |ΣS|', fixed(pf.vector.kVA, 2), fixed(pf.vector.pf, 3)],
-    ['arithmetic  Σ|V||I|', fixed(pf.arithmetic.kVA, 2), fixed(pf.arithmetic.pf, 3)],
+    ['vector  |ΣS|', fixed(pf.vector.kVA, 2), signedPfText(pf.vector.pf)],
+    ['arithmetic  Σ|V||I|', fixed(pf.arithmetic.kVA, 2), signedPfText(pf.arithmetic.pf)],
   ];
-  if (pf.effective) rows.push(['effective  3·Ve·Ie (IEEE 1459)', fixed(pf.effective.kVA, 2), fixed(pf.effective.pf, 3)]);
-  if (pf.positiveSequence) rows.push(['positive sequence  3·V1·I1', fixed(pf.positiveSequence.kVA, 2), fixed(pf.positiveSequence.pf, 3)]);
+  if (pf.effective) rows.push(['effective  3·Ve·Ie (IEEE 1459)', fixed(pf.effective.kVA, 2), signedPfText(pf.effective.pf)]);
+  if (pf.positiveSequence) rows.push(['positive sequence  3·V1·I1', fixed(pf.positiveSequence.kVA, 2), signedPfText(pf.positiveSequence.pf)]);
   // S_U1 is an apparent power with no power factor of its own: a row of the table, its PF cell empty.
   if (pf.unbalancedKVA !== null) rows.push(['unbalanced  S_U1 (IEEE 1459)', fixed(pf.unbalancedKVA, 2), '']);
   return renderTable([{ header: 'definition', align: 'left' }, { header: 'kVA' }, { header: 'PF' }], rows);
+}
+
+/** "7.600 kW exported; the board absorbs 1.200 kvar", or "…, with no reactive power" when none flows. */
+function exportedWords(kW: number, kvar: number): string {
+  const vars = varWords(kvar, 3);
+  return `${fixed(-kW, 3)} kW exported${vars === 'no reactive power' ? ', with no reactive power' : `; the board ${vars}`}`;
 }
 
 function powerBlock(r: BoardResult): string {
@@ -223,7 +229,7 @@ function powerBlock(r: BoardResult): string {
   // A sub-board is fed by the board above it, through its feeder only (no source windings of its own).
   const feeding = r.incomer?.fedFrom ?? null;
   const supply = fixed(r.source.kW, 3).startsWith('-')
-    ? `  ${(feeding ? `to ${feeding}` : 'to the supply').padEnd(16)} ${fixed(-r.source.kW, 3)} kW exported; the board ${varWords(r.source.kvar, 3)}`
+    ? `  ${(feeding ? `to ${feeding}` : 'to the supply').padEnd(16)} ${exportedWords(r.source.kW, r.source.kvar)}`
     : `  ${(feeding ? `from ${feeding}` : 'from the supply').padEnd(16)} ${fixed(r.source.kW, 3)} kW, ${fixed(r.source.kvar, 3)} kvar`;
   const row = (label: string, text: string) => `  ${label.padEnd(16)} ${text}`;
   // What the board passes on to the boards it feeds (their loads and feeders): the balance's missing term on a board that feeds others.

@@ -91,7 +91,7 @@ export function figuresOf(r: CorrectionReport): ArrangementFigures {
   const pf = v.metering?.powerFactor ?? v.powerFactor;
   // No line current: no power factor of any definition to read (the board-wide ones default to 1 there).
   const targetPfAfter =
-    lowest === null ? null : def === 'per-line' ? lowest : def === 'effective' ? (pf.effective?.after ?? null) : def === 'positive-sequence' ? (pf.positiveSequence?.after ?? null) : def === 'vector' ? pf.vector.after : pf.arithmetic.after;
+    lowest === null ? null : def === 'per-line' ? lowest : def === 'effective' ? (pf.effective?.after ?? null) : def === 'positive-sequence' ? (pf.positiveSequence?.after ?? null) : def === 'vector' ? (pf.vector?.after ?? null) : (pf.arithmetic?.after ?? null);
   return {
     deliveredKvar: sel?.deliveredKvar ?? 0,
     nameplateKvar: sel?.nameplateKvar ?? 0,

@@ -192,7 +192,9 @@ export function checkTarget(result: TargetReadings, target: ResolvedTarget, befo
   let board: TargetCheck['board'] = null;
   if (target.definition !== 'per-line') {
     const pf = boardPowerFactor(result, target.definition);
-    const reached = pf !== null && pf >= target.pf - TARGET_SLACK;
+    // A board that carries no power has no PF (null) and nothing to correct: the target holds, as on its idle lines.
+    const idle = result.powerFactor.vector.kVA === 0;
+    const reached = idle || (pf !== null && pf >= target.pf - TARGET_SLACK);
     const notPast = pf === null || target.maxLaggingPf === null || pf <= target.maxLaggingPf + TARGET_SLACK;
     if (!reached) shortfalls.push(targetShortfall.boardBelow(target, pf));
     if (!notPast) shortfalls.push(targetShortfall.boardBeyond(target, pf));

@@ -87,7 +87,8 @@ const figuresOf = (r: BoardResult): Figures => ({
   // A line with no current has no PF (null); hand methods take an idle line as unity.
   pf: new Map(r.phases.map((p) => [p.phase, p.pf ?? 1])),
   neutralA: r.neutral && !r.board.neutralOpen ? r.neutral.current.magnitude : null,
-  boardPf: r.powerFactor.vector.pf,
+  // A board with no power at all: 1, as the textbook working takes it (textbookWorking.ts).
+  boardPf: r.powerFactor.vector.pf ?? 1,
 });
 
 function contribution(effect: HandEffectId, explanation: string, from: Figures, to: Figures, board: Board): EffectContribution {

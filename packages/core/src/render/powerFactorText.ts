@@ -19,3 +19,23 @@ export function powerFactorText(r: Pick<PowerReading, 'pf' | 'sense' | 'kVA' | '
   const sense = noVars ? '' : r.sense === 'lagging' ? ' lag' : r.sense === 'leading' ? ' lead' : '';
   return `${pf}${sense}`;
 }
+
+/**
+ * A signed board PF (P/S, negative when the board exports, as BoardResult's power definitions give it)
+ * in the same words: "0.950", "1.000 export", `none` where no power flows (pf null).
+ */
+export function signedPfText(pf: number | null, none = '-'): string {
+  if (pf === null) return none;
+  const shown = fixed(Math.abs(pf), 3);
+  return pf < 0 && fixed(pf, 3) !== '0.000' ? `${shown} export` : shown;
+}
+
+/**
+ * The footnote for circuits given in kW without a pf (`*`), from the kW of those circuits: a consumer
+ * taken at pf 1 is a resistive load, an exporter (a generator, PV) simply runs at unity power factor.
+ */
+export function assumedPfNote(assumedKW: readonly number[]): string {
+  const exporters = assumedKW.filter((kW) => kW < 0).length;
+  const why = exporters === 0 ? ' (a resistive load)' : exporters === assumedKW.length ? ' (exporting at unity power factor)' : '';
+  return `*: pf not given in the file, taken as 1${why}.`;
+}
