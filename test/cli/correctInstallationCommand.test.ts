@@ -60,9 +60,9 @@ describe('trivar correct on an installation file', () => {
     expect(r.stdout).toContain('! Barn: 1 → 0 load(s) outside the voltage band');
   });
 
-  it('an unknown board: exit 3, naming --board and every board of the installation', () => {
+  it('an unknown board: exit 2 (the command line names it), naming --board and every board of the installation', () => {
     const r = runTrivar(['correct', works, '--board', 'Paint shop']);
-    expect(r.code).toBe(3);
+    expect(r.code).toBe(2);
     expect(r.stderr).toContain('--board: expected a board of this installation: "Main switchboard", "Press shop", "Offices" (received "Paint shop")');
     expect(r.stdout).toBe('');
   });
