@@ -19,6 +19,7 @@ import {
   parseInstallation,
   readBoardText,
   readPlainBoardText,
+  rewriteBoardText,
   rebalanceBoard,
   rebalanceInstallation,
   solveBoardModel,
@@ -107,6 +108,7 @@ describe('text arguments', () => {
     ['parseBoardText(42)', () => parseBoardText(42 as never)],
     ['readBoardText(undefined)', () => readBoardText(undefined as never)],
     ['readPlainBoardText(a Buffer)', () => readPlainBoardText(Buffer.from('name: x') as never)],
+    ['rewriteBoardText(null, [])', () => rewriteBoardText(null as never, [])],
   ])('%s: InputError naming "text"', (_, call) => {
     const { message, path } = refusal(call);
     expect(path).toBe('text');
