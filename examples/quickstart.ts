@@ -16,4 +16,4 @@ const result = solveBoard({
 export const neutralAmps = result.neutral!.current.magnitude.toFixed(2); //=> "9.96"
 export const lineAmps = result.phases.map((p) => p.current.magnitude.toFixed(2)); //=> ["9.96","15.00","15.00"]
 export const currentUnbalance = result.unbalance!.currentNegativePercent.toFixed(1); //=> "44.6"
-export const effectivePf = result.powerFactor.effective!.pf.toFixed(3); //=> "0.815"
+export const effectivePf = result.powerFactor.effective!.pf!.toFixed(3); //=> "0.815"

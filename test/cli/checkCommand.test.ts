@@ -59,6 +59,57 @@ describe('trivar check', () => {
     expect(runTrivar(['check', BOARD, FIGURES, '--diagram', FIGURES]).code).toBe(2);
   });
 
+  describe('capacitors far beyond the load: the solved board\'s warnings, as trivar solve gives them', () => {
+    const dir = mkdtempSync(join(tmpdir(), 'trivar-check-'));
+    const garage = join(dir, 'garage.yaml');
+    writeFileSync(
+      garage,
+      [
+        'name: Garage panel',
+        'supply: { voltage: 120/240, frequencyHz: 60, transformer: { kVA: 25, impedancePercent: 2, xOverR: 1.5 } }',
+        'feeder: { lengthFt: 120, line: { awg: "6" }, neutral: { awg: "6" } }',
+        'loads:',
+        '  - { name: Welder, connection: L1-L2, kW: 5, pf: 0.7 }',
+        '  - { name: Compressor, connection: L1-N, kW: 1.5, pf: 0.8 }',
+        '  - { name: Workbench, connection: L1-N, kW: 1.2 }',
+        '',
+      ].join('\n'),
+    );
+    const figures = (kvar: number) => {
+      const file = join(dir, `caps-${kvar}.yaml`);
+      writeFileSync(file, `capacitors: [ { branch: L1-L2, kvar: ${kvar} } ]\n`);
+      return file;
+    };
+
+    it('40 kvar on a 7.7 kW board: leading lines and board, the transformer overload, lead beside the board PF', () => {
+      const r = runTrivar(['check', garage, figures(40)]);
+      expect(r.code).toBe(0);
+      expect(r.stdout).toMatch(/board {2}PF \(vector\) {6}— {2}0\.222 lead {2}0\.219 lead/);
+      const warnings = r.stdout.slice(r.stdout.indexOf('\nWarnings\n'), r.stdout.indexOf('\nCautions\n')).replace(/\n {4}/g, ' ');
+      expect(warnings).toContain('! line L1 leads at PF 0.306 with your capacitors in: they supply more reactive power than the loads on it draw (over-correction)');
+      expect(warnings).toContain('! line L2 leads at PF 0.136 with your capacitors in');
+      expect(warnings).toContain('! the board leads at PF 0.219 with your capacitors in: they give 40.52 kvar at the solved voltages, against 6.23 kvar drawn by its loads');
+      expect(warnings).toContain('the supply transformer is loaded to 142 % of its 25 kVA rating');
+      const data = JSON.parse(runTrivar(['check', garage, figures(40), '--json']).stdout) as { warnings: { code: string }[]; boardPower: { solved: { sense: string } }; operatingPoint: { collapsed: boolean } };
+      expect(data.warnings.map((w) => w.code)).toEqual(['hand-line-leading', 'hand-line-leading', 'hand-board-leading', 'transformer-overload']);
+      expect(data.boardPower.solved.sense).toBe('leading');
+      expect(data.operatingPoint.collapsed).toBe(false);
+    });
+
+    it('2000 kvar collapses the board: figures and warnings written, then the error and exit 4 that trivar solve gives', () => {
+      const r = runTrivar(['check', garage, figures(2000)]);
+      expect(r.code).toBe(4);
+      expect(r.stdout).toContain('phase L1 at the board is 23.0 V, 19.2 % of nominal');
+      expect(r.stderr).toMatch(/^error: no viable operating point: the supply cannot carry these loads: the board voltage has collapsed/);
+    });
+
+    it('a modest bank that leaves every line lagging warns of nothing', () => {
+      const r = runTrivar(['check', garage, figures(2)]);
+      expect(r.code).toBe(0);
+      expect(r.stdout).toContain('\nWarnings\n  none\n');
+    });
+  });
+
   it('help is pinned', () => {
     const r = runTrivar(['check', '--help']);
     expect(r.code).toBe(0);

@@ -60,9 +60,9 @@ describe('trivar correct on an installation file', () => {
     expect(r.stdout).toContain('! Barn: 1 → 0 load(s) outside the voltage band');
   });
 
-  it('an unknown board: exit 3, naming --board and every board of the installation', () => {
+  it('an unknown board: exit 2 (the command line names it), naming --board and every board of the installation', () => {
     const r = runTrivar(['correct', works, '--board', 'Paint shop']);
-    expect(r.code).toBe(3);
+    expect(r.code).toBe(2);
     expect(r.stderr).toContain('--board: expected a board of this installation: "Main switchboard", "Press shop", "Offices" (received "Paint shop")');
     expect(r.stdout).toBe('');
   });
@@ -124,7 +124,7 @@ describe('--measured-at: the target judged away from the bank board', () => {
     expect(r.stdout).toContain('the origin of the installation');
     const installation = normaliseInstallation(parseInstallation(readBoardText(text))).installation;
     const m = correctInstallation(installation, { arrangement: 'star-bank', target: { pf: 0.97, measuredAt: 'origin' } }, { board: 'Press shop' }).report.verification.metering!;
-    expect(r.stdout).toContain(`${m.powerFactor.vector.before.toFixed(3)} → ${m.powerFactor.vector.after.toFixed(3)}`);
+    expect(r.stdout).toContain(`${m.powerFactor.vector!.before.toFixed(3)} → ${m.powerFactor.vector!.after.toFixed(3)}`);
   });
 
   it('on a single-board file, origin takes in the service cable', () => {

@@ -6,9 +6,9 @@ const works = 'examples/tannery-lane-works.yaml';
 const figures = 'examples/hand-figures/riverside-cold-store.yaml';
 
 describe('hand figures on an installation file', () => {
-  it('trivar report --hand-figures: exit 2, why, and checking one board at a time with its own file', () => {
+  it('trivar report --hand-figures: exit 3 as from trivar check (the file is the wrong kind), why, and checking one board at a time with its own file', () => {
     const r = runTrivar(['report', works, '--hand-figures', figures]);
-    expect(r.code).toBe(2);
+    expect(r.code).toBe(3);
     expect(r.stdout).toBe('');
     expect(r.stderr).toContain('--hand-figures: a hand calculation is checked on a single board file, one board and its own loads');
     expect(r.stderr).toContain('Check one board at a time');

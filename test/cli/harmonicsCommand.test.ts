@@ -89,9 +89,9 @@ describe('trivar harmonics on an installation (built binary)', () => {
     expect(JSON.parse(r.stdout)).toEqual(JSON.parse(JSON.stringify(expected)));
   });
 
-  it('an unknown --board, and --board on a board file, exit 3 with the boards there are', () => {
+  it('an unknown --board exits 2 (a command-line problem, as rebalance --boards) with the boards there are; --board on a board file exits 3', () => {
     const unknown = runTrivar(['harmonics', yard, '--board', 'Loft']);
-    expect(unknown.code).toBe(3);
+    expect(unknown.code).toBe(2);
     expect(unknown.stderr).toContain('"Main switchboard", "Workshop"');
     expect(unknown.stderr).toContain('"Loft"');
     const onBoard = runTrivar(['harmonics', offices, '--all-boards']);

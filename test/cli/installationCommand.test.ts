@@ -41,9 +41,9 @@ describe('trivar solve on an installation (built binary)', () => {
     const r = runTrivar(['solve', file, '--json']);
     expect(JSON.parse(r.stdout)).toEqual(JSON.parse(JSON.stringify(library())));
   });
-  it('an unknown --board is an input error naming the boards', () => {
+  it('an unknown --board is a usage error (exit 2: the command line names it) naming the boards', () => {
     const r = runTrivar(['solve', file, '--board', 'Floor 9']);
-    expect(r.code).toBe(3);
+    expect(r.code).toBe(2);
     expect(r.stderr).toContain('"Floor 4"');
   });
   it('a bad installation names the field', () => {

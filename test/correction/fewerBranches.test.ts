@@ -62,7 +62,7 @@ describe('a balanced board: three branches do what the programme spreads over si
     // And the re-solve of what is built agrees with the verdict.
     const after = solveBoardModel(report.verification.board);
     expect(after.powerFactor.positiveSequence!.pf).toBeGreaterThanOrEqual(0.95 - 1e-9);
-    expect(after.powerFactor.positiveSequence!.pf).toBeCloseTo(report.verification.after.powerFactor.positiveSequence!.pf, 9);
+    expect(after.powerFactor.positiveSequence!.pf).toBeCloseTo(report.verification.after.powerFactor.positiveSequence!.pf!, 9);
     const text = renderCorrectionReport(report);
     expect(text).toContain('fewer branches built');
     expect(text).toContain('built: the capacitor-only solution on fewer branches');

@@ -99,8 +99,8 @@ describe('the effect of a press-shop bank on the boards upstream (Tannery Lane, 
     expect(main.hasEquipment || offices.hasEquipment).toBe(false);
   });
   it('the main incomer PF improves (0.807 → 0.973) and the service feeder current falls (112.7 → 94.7 A)', () => {
-    expectClose(main.vectorPf.before, 0.8068, t);
-    expectClose(main.vectorPf.after, 0.9733, t);
+    expectClose(main.vectorPf!.before, 0.8068, t);
+    expectClose(main.vectorPf!.after, 0.9733, t);
     expectClose(main.feeder.largestLineCurrentA.before, 112.742, { rel: 0, abs: 5e-3 });
     expectClose(main.feeder.largestLineCurrentA.after, 94.722, { rel: 0, abs: 5e-3 });
     expect(main.feeder.lossesKW.after).toBeLessThan(main.feeder.lossesKW.before);
@@ -111,7 +111,7 @@ describe('the effect of a press-shop bank on the boards upstream (Tannery Lane, 
     expect(press.lowestVoltagePercent.after).toBeGreaterThan(press.lowestVoltagePercent.before);
   });
   it('the office board beside it sees only the higher voltage: its constant-power loads keep their PF', () => {
-    expectClose(offices.vectorPf.after, offices.vectorPf.before, { rel: 1e-9, abs: 0 });
+    expectClose(offices.vectorPf!.after, offices.vectorPf!.before, { rel: 1e-9, abs: 0 });
     expect(offices.lowestVoltagePercent.after).toBeGreaterThan(offices.lowestVoltagePercent.before);
   });
   it('the supply delivers less reactive power by what the bank gives plus the change in reactive losses', () => {

@@ -84,7 +84,7 @@ describe('the target measured upstream of the bank, verified by an independent r
     expect(pf).toBeGreaterThanOrEqual(0.95 - 1e-6);
     // and the continuous sizing stops at the target: the PF there is 0.95, not beyond (within the search's tolerance)
     expectClose(sizingOf(c1).check.board!.pf!, 0.95, { rel: 1e-6, abs: 0 }, 'sized PF at the origin');
-    expectClose(c1.report.verification.metering!.powerFactor.vector.after, pf, { rel: 1e-6, abs: 0 }, 'reported PF at the origin');
+    expectClose(c1.report.verification.metering!.powerFactor.vector!.after, pf, { rel: 1e-6, abs: 0 }, 'reported PF at the origin');
   });
 
   it('the report also gives the PF at the bank board, and it is better there than at the origin (the rest of the works and the cables still draw vars)', () => {

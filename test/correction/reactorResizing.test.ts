@@ -60,7 +60,7 @@ describe('hillside workshop: capacitors rounded down beside the reactors, the re
   const before = solveBoardModel(board);
 
   it('with the reactors as sized, the built capacitors miss both targets (PF1+ 0.874, neutral 22.2 % of |I1|)', () => {
-    expectClose(asSized.powerFactor.positiveSequence!.pf, 0.874, { rel: 0, abs: 5e-4 });
+    expectClose(asSized.powerFactor.positiveSequence!.pf!, 0.874, { rel: 0, abs: 5e-4 });
     const balance = checkBalance(asSized, sizing.balance);
     expect(balance.met).toBe(false);
     expectClose(balance.neutralPercent!, 22.2, { rel: 0, abs: 0.05 });
@@ -70,7 +70,7 @@ describe('hillside workshop: capacitors rounded down beside the reactors, the re
     expect(refit.used).toBe(true);
     expect(refit.reactors.map((x) => x.branch)).toEqual(['B-C', 'A-N', 'B-N']);
     expect(checkBalance(asBuilt, sizing.balance).met).toBe(true);
-    expectClose(asBuilt.powerFactor.positiveSequence!.pf, 0.895, { rel: 0, abs: 5e-4 });
+    expectClose(asBuilt.powerFactor.positiveSequence!.pf!, 0.895, { rel: 0, abs: 5e-4 });
     expect(checkTarget(asBuilt, sizing.target, before).met).toBe(false);
     // The capacitors are the units chosen; only the reactors moved.
     const capacitors = (groups: readonly EquipmentGroup[]) => groups.flatMap((g) => g.branches.filter((b) => b.susceptanceS > 0).map((b) => [b.branch, b.susceptanceS]));

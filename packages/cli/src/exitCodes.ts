@@ -6,9 +6,9 @@ export const EXIT = {
   ok: 0,
   /** A bug in trivar: the message says so. */
   internal: 1,
-  /** The command line itself is wrong (unknown option, missing argument). */
+  /** The command line itself is wrong (unknown option, missing argument, a --board name the installation does not have). */
   usage: 2,
-  /** The board file cannot be read or is not a valid board. */
+  /** The board file cannot be read, is not a valid board, or is the wrong kind for the study (an installation to a hand check). */
   input: 3,
   /** The board is valid but has no solution (singular network, loads beyond what the supply can deliver). */
   numerical: 4,

@@ -74,3 +74,11 @@ export function inputIssue(code: string, path: string, expected: string, receive
   const base = { code, path, expected, message: `${where}: expected ${expected}${got}` };
   return received === undefined ? base : { ...base, received: describeValue(received) };
 }
+
+/**
+ * The issues about the whole input (path '') reworded to name the argument they are about: an option
+ * object or study handed to a function is not the board, which `inputIssue` names by default.
+ */
+export function namingArgument(issues: readonly InputIssue[], argument: string): InputIssue[] {
+  return issues.map((i) => (i.path === '' ? { ...i, message: `${argument}: expected ${i.expected}${i.received === undefined ? '' : ` (received ${i.received})`}` } : i));
+}

@@ -1,5 +1,5 @@
 /** `trivar check`: solve the board with the capacitors of a hand calculation and explain every difference. */
-import { addHandCapacitors, checkHandFigures, conventionsOf, InputError, isInstallationInput, labellerOf, normaliseBoard, parseBoard, readBoardText, renderCurrentTriangles, solveBoardModel, type HandCheckResult } from '@trivar/core';
+import { addHandCapacitors, checkHandFigures, collapseError, conventionsOf, InputError, isInstallationInput, labellerOf, normaliseBoard, parseBoard, readBoardText, renderCurrentTriangles, solveBoardModel, type HandCheckResult } from '@trivar/core';
 import { assertNotInput, writeOutputFile } from '../outputFiles.js';
 import type { CliIo } from '../io.js';
 import { EXIT, UsageError } from '../exitCodes.js';
@@ -49,5 +49,7 @@ export async function runCheck(boardFile: string, figuresFile: string, options: 
   // Lines and branches as the board file names them (L1-L2 or A-B).
   const label = labellerOf(conventionsOf(board).phaseNames);
   writeResult(io, result, options.json, (r) => renderHandCheckReport(r, label));
+  // As `trivar solve`: the figures are written, then a board the capacitors collapse exits 4.
+  if (result.operatingPoint.collapsed) throw collapseError(result);
   return result;
 }

@@ -6,6 +6,7 @@ import { renderCorrectionReport } from '../format/correctionReport.js';
 import { renderComparisonReport } from '../format/comparisonReport.js';
 import { renderInstallationComparison, renderInstallationCorrection } from '../format/installationCorrectionReport.js';
 import { assertOptionsFit, studySpec, type CorrectStudyOptions } from './correctStudyOptions.js';
+import { boardIndexOption } from './boardIndexOption.js';
 
 export interface CorrectCommandOptions extends CorrectStudyOptions {
   readonly json?: boolean;
@@ -43,7 +44,7 @@ async function runCorrectInstallation(input: unknown, options: CorrectCommandOpt
   // The banks the file lists are in service; the one on the equipment's board, if any, is the study's to replace.
   const installation = installationInService(spec);
   // Checked before the study, so the error names the option, not the file's correction section.
-  installationBoardIndex(installation, options.board, '--board');
+  boardIndexOption(installation, options.board, '--board');
   // The file's correction.board places the equipment (--board overrides it); it is not part of the study itself.
   const { board: fileBoard, ...fromFile } = spec.correction ?? {};
   if (fileBoard !== undefined) installationBoardIndex(installation, fileBoard, 'correction.board');

@@ -22,6 +22,7 @@ import {
 } from '@trivar/core';
 import type { CliIo } from '../io.js';
 import { profileCollapseOf, UsageError } from '../exitCodes.js';
+import { boardIndexOption } from './boardIndexOption.js';
 import { writeResult } from '../writeResult.js';
 import { readCsvHeader, readIntervalRows } from '../read/intervalCsv.js';
 import { timeZoneOption } from '../read/timeZoneOption.js';
@@ -107,7 +108,7 @@ export async function computeInstallationProfileStudy(
   if (options.correctionBank && options.pf !== undefined)
     throw new UsageError('--pf sets the target of a bank sized from the profile; the correction study\'s bank keeps the target of the file\'s correction section');
   // Checked before any data is read, so the error names the option.
-  installationBoardIndex(installation, options.board, '--board');
+  boardIndexOption(installation, options.board, '--board');
   const designed = options.correctionBank ? designedInstallationBank(spec, installation, options.board) : undefined;
   const bankBoard = options.board ?? designed?.board;
   // The bank simulated takes the place of the file's bank in service on its board, as in trivar correct.

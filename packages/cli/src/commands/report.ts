@@ -46,7 +46,7 @@ import {
 } from '@trivar/core';
 import type { CliIo } from '../io.js';
 import { HAND_FIGURES_ON_INSTALLATION } from '../handFiguresWording.js';
-import { collapseOf, UsageError } from '../exitCodes.js';
+import { collapseOf, EXIT, UsageError } from '../exitCodes.js';
 import { assertNotInput, writeOutputFile } from '../outputFiles.js';
 import { computeProfileStudy } from './profile.js';
 import { writeInstallationProfileCharts, writeProfileCharts } from '../format/profileChartFiles.js';
@@ -178,7 +178,8 @@ function installationCorrectionOf(spec: InstallationSpec, installation: Installa
 async function installationDocument(raw: unknown, figures: unknown, options: ReportCommandOptions, io: CliIo): Promise<Reported> {
   // The hand method works on one board and its own loads; a board inside an installation also carries the
   // boards beyond it and the drops before it, which the hand check's effects do not separate.
-  if (figures !== null) throw new UsageError(`--hand-figures: ${HAND_FIGURES_ON_INSTALLATION}`);
+  // As `trivar check` on an installation: the file is the wrong kind for a hand check (exit 3, input).
+  if (figures !== null) throw new UsageError(`--hand-figures: ${HAND_FIGURES_ON_INSTALLATION}`, EXIT.input);
   const spec = parseInstallation(raw);
   // The banks the file lists in service, as trivar solve takes them.
   const installation = installationInService(spec);

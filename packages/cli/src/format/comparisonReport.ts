@@ -1,11 +1,10 @@
 /** CorrectionComparison → the side-by-side report of `trivar correct` without an arrangement (fits 100 columns). */
 import { boundFigure } from './correctionReport.js';
-import { arrangementNames, type Arrangement, type ArrangementOutcome, type CorrectionComparison } from '@trivar/core';
+import { arrangementNames, type Arrangement, type ArrangementOutcome, type CorrectionComparison, signedPfText } from '@trivar/core';
 import { fixed, renderTable, section } from './textTable.js';
 import { headerLines } from './solveReport.js';
 import { renderCorrectionReport, renderNothingToAdd } from './correctionReport.js';
 import { wrapText } from './wrapText.js';
-import { boardPfText } from './powerFlowWords.js';
 
 const TWO_LINE_TABLE_NAMES = { 'star-bank': 'L-N bank', 'delta-bank': 'L-L bank' } as const;
 const TWO_LINE_LEGEND = 'L-N bank: capacitors from each line to the neutral; L-L bank: capacitors across the two lines';
@@ -51,7 +50,7 @@ function row(o: ArrangementOutcome, names: Readonly<Record<Arrangement, string>>
     built ? fixed(f.nameplateKvar, 1) : '-',
     built ? String(f.units) : '-',
     built ? String(f.switchedSteps) : '-',
-    f.targetPfAfter === null ? '-' : boardPfText(f.targetPfAfter),
+    f.targetPfAfter === null ? '-' : signedPfText(f.targetPfAfter),
     f.neutralCurrentA === null ? '-' : fixed(f.neutralCurrentA, 1),
     f.negativeSequencePercent === null ? '-' : fixed(f.negativeSequencePercent, 1),
     fixed(f.lossesKW, 3),

@@ -1,10 +1,9 @@
 /** CorrectionReport → the human-readable report of `trivar correct` (fits 100 columns). */
-import { arrangementDescriptions, arrangementNames, BUILD_VERDICT_WORDS, CORRECTION_DEFAULTS, labellerOf, meteringPointWords, reactorChanges, smallBranchWords, sparedBranchesWords, type BankSelection, type BankStep, type BeforeAfter, type BranchSizing, type CompensatorSizing, type ControllerSettings, type CorrectionReport, type CorrectionVerification, type FewerBranchesBuild, type PhaseId, type RoundingBesideReactors, type PhaseLabeller } from '@trivar/core';
+import { arrangementDescriptions, arrangementNames, BUILD_VERDICT_WORDS, CORRECTION_DEFAULTS, labellerOf, meteringPointWords, reactorChanges, smallBranchWords, sparedBranchesWords, type BankSelection, type BankStep, type BeforeAfter, type BranchSizing, type CompensatorSizing, type ControllerSettings, type CorrectionReport, type CorrectionVerification, type FewerBranchesBuild, type PhaseId, type RoundingBesideReactors, type PhaseLabeller, signedPfText } from '@trivar/core';
 import { fixed, renderTable, section } from './textTable.js';
 import { headerLines } from './solveReport.js';
 import { wrapText } from './wrapText.js';
 import { meteringSection } from './meteringSection.js';
-import { boardPfText } from './powerFlowWords.js';
 
 
 const STATUS_WORDS: Record<string, string> = {
@@ -23,7 +22,7 @@ function headline(r: CorrectionReport): string {
 }
 
 const arrow = (x: BeforeAfter, digits: number, unit = '') => `${fixed(x.before, digits)}${unit} → ${fixed(x.after, digits)}${unit}`;
-const pfArrow = (x: BeforeAfter) => `${boardPfText(x.before)} → ${boardPfText(x.after)}`;
+const pfArrow = (x: BeforeAfter) => `${signedPfText(x.before)} → ${signedPfText(x.after)}`;
 const senseWord = (s: string) => (s === 'lagging' ? 'lag' : s === 'leading' ? 'lead' : '');
 const indentLines = (lines: readonly string[]) => lines.map((l) => wrapText(l, '  ', '    ')).join('\n');
 /** Phases, pairs and branches as the board file names them (L1-L2 or A-B); the study's data keys stay A/B/C. */
@@ -200,8 +199,9 @@ function boardLines(v: CorrectionVerification): string {
   const out: string[] = [];
   const pf = v.powerFactor;
   if (pf.effective) out.push(`PF effective (IEEE 1459)     ${pfArrow(pf.effective)}`);
-  out.push(`PF vector                    ${pfArrow(pf.vector)}`);
-  out.push(`PF arithmetic                ${pfArrow(pf.arithmetic)}`);
+  // A board carrying no power has no PF (null): the row says so rather than a placeholder.
+  out.push(`PF vector                    ${pf.vector ? pfArrow(pf.vector) : '-'}`);
+  out.push(`PF arithmetic                ${pf.arithmetic ? pfArrow(pf.arithmetic) : '-'}`);
   if (pf.positiveSequence) out.push(`PF positive sequence         ${pfArrow(pf.positiveSequence)}`);
   if (v.neutralCurrentA) out.push(`neutral current              ${arrow(v.neutralCurrentA, 1, ' A')}`);
   if (v.unbalance) {
@@ -363,10 +363,10 @@ export function renderNothingToAdd(r: CorrectionReport, studied: string): string
   const board = idle
     ? ['no line current, so no power factor']
     : [
-        ...(pf.effective ? [`PF effective (IEEE 1459) ${boardPfText(pf.effective.before)}`] : []),
-        `PF vector ${boardPfText(pf.vector.before)}`,
-        `PF arithmetic ${boardPfText(pf.arithmetic.before)}`,
-        ...(pf.positiveSequence ? [`PF positive sequence ${boardPfText(pf.positiveSequence.before)}`] : []),
+        ...(pf.effective ? [`PF effective (IEEE 1459) ${signedPfText(pf.effective.before)}`] : []),
+        ...(pf.vector ? [`PF vector ${signedPfText(pf.vector.before)}`] : []),
+        ...(pf.arithmetic ? [`PF arithmetic ${signedPfText(pf.arithmetic.before)}`] : []),
+        ...(pf.positiveSequence ? [`PF positive sequence ${signedPfText(pf.positiveSequence.before)}`] : []),
       ];
   if (v.neutralCurrentA) board.push(`neutral ${fixed(v.neutralCurrentA.before, 1)} A`);
   const parts = [

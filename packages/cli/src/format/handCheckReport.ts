@@ -1,6 +1,7 @@
 /** Text report of `trivar check`: the textbook working, hand vs solved line by line, and the effects behind each difference. */
-import { handCheckEffectRows, labellerOf, type HandCheckResult, type PhaseLabeller, type PowerFactorSense } from '@trivar/core';
+import { handCheckEffectRows, labellerOf, powerFactorText, type HandCheckResult, type PhaseLabeller, type PowerFactorSense } from '@trivar/core';
 import { fixed, renderTable, section } from './textTable.js';
+import { wrapText } from './wrapText.js';
 
 const SYSTEM_WORDS: Readonly<Record<string, string>> = {
   'three-phase-4wire': 'three-phase 4-wire',
@@ -77,7 +78,8 @@ export function renderHandCheckReport(r: HandCheckResult, label: PhaseLabeller =
     rows.push(['', 'PF', orDash(l.pf.yours, 3), `${fixed(l.pf.textbook, 3)}${senseWord(l.senseTextbook)}`, `${fixed(l.pf.solved, 3)}${senseWord(l.senseSolved)}`, signed(l.pf.difference, 3)]);
   }
   if (r.neutralA) rows.push(['N', 'current A', orDash(r.neutralA.yours, 1), fixed(r.neutralA.textbook, 1), fixed(r.neutralA.solved, 1), signed(r.neutralA.difference, 1)]);
-  rows.push(['board', 'PF (vector)', orDash(r.boardPf.yours, 3), fixed(r.boardPf.textbook, 3), fixed(r.boardPf.solved, 3), signed(r.boardPf.difference, 3)]);
+  // The board's PF as every table prints one: a lead/lag tag, or "export" where power flows back.
+  rows.push(['board', 'PF (vector)', orDash(r.boardPf.yours, 3), powerFactorText(r.boardPower.textbook), powerFactorText(r.boardPower.solved), signed(r.boardPf.difference, 3)]);
   out.push(
     renderTable(
       [{ header: 'line', align: 'left' }, { header: 'figure', align: 'left' }, { header: 'yours' }, { header: 'textbook' }, { header: 'solved' }, { header: 'solved − textbook' }],
@@ -99,6 +101,8 @@ export function renderHandCheckReport(r: HandCheckResult, label: PhaseLabeller =
   out.push(
     "  Each effect is switched on in turn, in this order, and the board solved again; its size is how far it moves the figure, and the sizes add up to the whole difference.",
   );
+
+  out.push(section('Warnings') + (r.warnings.length ? r.warnings.map((w) => wrapText(w.message, '  ! ')).join('\n') : '  none'));
 
   out.push(section('Cautions'));
   for (const c of r.cautions) out.push(`  * ${c}`);

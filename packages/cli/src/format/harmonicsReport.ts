@@ -1,5 +1,5 @@
 /** HarmonicsReport → the human-readable report of `trivar harmonics`. */
-import { conditionWords, labelIn, type DistortionReading, type HarmonicsReport, type ResonanceScan, type CapacitorDuty, type TddCheck, type NeutralCheck } from '@trivar/core';
+import { conditionWords, labelIn, signedPfText, type DistortionReading, type HarmonicsReport, type ResonanceScan, type CapacitorDuty, type TddCheck, type NeutralCheck } from '@trivar/core';
 import { fixed, renderTable, section, textWidth } from './textTable.js';
 import { REPORT_WIDTH } from './wrapText.js';
 import { wrapText } from './wrapText.js';
@@ -44,7 +44,7 @@ export function currentTable(r: BoardReadings): string {
 export function voltageTable(r: BoardReadings): string {
   const label = labeller(r);
   const rows = [
-    ...r.lines.map((l) => [label(`${l.phase}-N`), fixed(l.voltage.rms, 1), thd(l.voltage), largestOrder(l.voltage), l.truePf === null ? '-' : fixed(l.truePf, 3), l.displacementPf === null ? '-' : fixed(l.displacementPf, 3)]),
+    ...r.lines.map((l) => [label(`${l.phase}-N`), fixed(l.voltage.rms, 1), thd(l.voltage), largestOrder(l.voltage), signedPfText(l.truePf), signedPfText(l.displacementPf)]),
     ...r.lineToLine.map((p) => [label(p.pair), fixed(p.voltage.rms, 1), thd(p.voltage), largestOrder(p.voltage), '', '']),
   ];
   return renderTable(
@@ -186,7 +186,7 @@ export function renderHarmonicsReport(r: HarmonicsReport): string {
   out.push(section('Voltages and power factor at the board'));
   out.push(voltageTable(r));
   out.push(
-    prose(`board: true PF ${r.powerFactor.true === null ? '-' : fixed(r.powerFactor.true, 3)}, displacement PF ${r.powerFactor.displacement === null ? '-' : fixed(r.powerFactor.displacement, 3)} (ΣP / Σ V·I over the lines)`),
+    prose(`board: true PF ${signedPfText(r.powerFactor.true)}, displacement PF ${signedPfText(r.powerFactor.displacement)} (ΣP / Σ V·I over the lines)`),
   );
   const v = r.voltageDistortion;
   const overBuses = v.buses.filter((b) => !b.ok).map((b) => labeller(r)(b.bus));

@@ -3,7 +3,7 @@
  * summary row per board (busbar distortion, incoming feeder, its neutral), the supply's IEEE 519
  * check, the scan and duty of each bank, then the full figures of the boards asked for.
  */
-import { jointCoverageWords, nearestWords, type BoardHarmonics, type InstallationHarmonicsReport, type JointScan } from '@trivar/core';
+import { jointCoverageWords, nearestWords, signedPfText, type BoardHarmonics, type InstallationHarmonicsReport, type JointScan } from '@trivar/core';
 import { fixed, renderTable, renderTableWithin, section } from './textTable.js';
 import { wrapText } from './wrapText.js';
 import { treeName } from './boardTree.js';
@@ -29,7 +29,7 @@ function boardTable(r: InstallationHarmonicsReport): string {
       b.neutral ? fixed(b.neutral.current.rms, 1) : '',
       b.triplenNeutralA === null ? '' : fixed(b.triplenNeutralA, 1),
       b.neutral?.loadingPercent === null || b.neutral?.loadingPercent === undefined ? '-' : `${fixed(b.neutral.loadingPercent, 0)}${b.neutral.overloaded ? ' OVER' : ''}`,
-      b.powerFactor.true === null ? '-' : fixed(b.powerFactor.true, 3),
+      signedPfText(b.powerFactor.true),
     ];
   });
   return renderTableWithin(
@@ -126,7 +126,7 @@ export function renderInstallationHarmonicsReport(r: InstallationHarmonicsReport
     out.push(currentTable(readings));
     out.push(section(`Voltages and power factor at ${name}`));
     out.push(voltageTable(readings));
-    out.push(prose(`board: true PF ${b.powerFactor.true === null ? '-' : fixed(b.powerFactor.true, 3)}, displacement PF ${b.powerFactor.displacement === null ? '-' : fixed(b.powerFactor.displacement, 3)} (ΣP / Σ V·I over the lines)`));
+    out.push(prose(`board: true PF ${signedPfText(b.powerFactor.true)}, displacement PF ${signedPfText(b.powerFactor.displacement)} (ΣP / Σ V·I over the lines)`));
     if (b.neutral) {
       out.push(section(`Neutral of the feeder into ${name}`));
       out.push(...neutralLines(b.neutral));

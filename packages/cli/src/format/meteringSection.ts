@@ -1,18 +1,17 @@
 /** Where a correction target is measured, when that is not the equipment's board: its readings before → after. */
-import { meteringPointWords, type BeforeAfter, type MeteringReadings } from '@trivar/core';
+import { meteringPointWords, type BeforeAfter, type MeteringReadings, signedPfText } from '@trivar/core';
 import { fixed, section } from './textTable.js';
 import { wrapText } from './wrapText.js';
-import { boardPfText } from './powerFlowWords.js';
 
 const arrow = (x: BeforeAfter, digits: number, unit = '') => `${fixed(x.before, digits)}${unit} → ${fixed(x.after, digits)}${unit}`;
-const pfArrow = (x: BeforeAfter) => `${boardPfText(x.before)} → ${boardPfText(x.after)}`;
+const pfArrow = (x: BeforeAfter) => `${signedPfText(x.before)} → ${signedPfText(x.after)}`;
 
 /** `lines`: the per-line table, rendered as the board's own lines are. */
 export function meteringSection(m: MeteringReadings, lines: string): string {
   const pf = m.powerFactor;
   const rows = [
     ...(pf.effective ? [`PF effective (IEEE 1459)     ${pfArrow(pf.effective)}`] : []),
-    `PF vector                    ${pfArrow(pf.vector)}`,
+    `PF vector                    ${pf.vector ? pfArrow(pf.vector) : '-'}`,
     ...(pf.positiveSequence ? [`PF positive sequence         ${pfArrow(pf.positiveSequence)}`] : []),
     `through it                   ${arrow(m.kW, 2, ' kW')}, ${arrow(m.kvar, 2, ' kvar')} (+ lagging)`,
   ];

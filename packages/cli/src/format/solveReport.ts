@@ -1,5 +1,5 @@
 /** BoardResult → the human-readable report of `trivar solve`. */
-import { bandVoltsWords, bandWords, judgedNominals, labelIn, regionWords, sourceUnitsWords, type BoardResult } from '@trivar/core';
+import { bandVoltsWords, bandWords, judgedNominals, labelIn, regionWords, signedPfText, assumedPfNote, sourceUnitsWords, type BoardResult } from '@trivar/core';
 import { fixed, renderTable, renderTableWithin, section } from './textTable.js';
 import { REPORT_WIDTH, wrapText } from './wrapText.js';
 import { exportSentence, isExport, pfCell, varWords } from './powerFlowWords.js';
@@ -153,7 +153,7 @@ function loadTable(r: BoardResult): string {
     notes.push(
       `${asDelta.join(', ')}: a floating star of constant-power or constant-current elements has no unique star-point position, so it is solved as its equivalent delta (its rating shared by the three line-to-line pairs; V is line-to-line). Rate it in ohms or as constant-impedance to see its star point.`,
     );
-  if (r.loads.some((l) => l.pfAssumed)) notes.push('*: pf not given in the file, taken as 1 (a resistive load).');
+  if (r.loads.some((l) => l.pfAssumed)) notes.push(assumedPfNote(r.loads.filter((l) => l.pfAssumed).map((l) => l.kW)));
   for (const l of r.loads) {
     const sentence = exportSentence(`"${l.name}"`, l, 'generates');
     if (sentence) notes.push(sentence);
@@ -215,7 +215,7 @@ const printsAsNoCurrent = (r: BoardResult): boolean => r.phases.every((p) => fix
 function powerFactorBlock(r: BoardResult): string {
   const pf = r.powerFactor;
   // A PF beside an apparent power that prints as 0.00 kVA is not shown, as a line's PF cell is not.
-  const pfOf = (x: { kVA: number; pf: number }) => (fixed(x.kVA, 2) === '0.00' ? '-' : fixed(x.pf, 3));
+  const pfOf = (x: { kVA: number; pf: number | null }) => (fixed(x.kVA, 2) === '0.00' ? '-' : signedPfText(x.pf));
   const rows: string[][] = [
     ['vector  |ΣS|', fixed(pf.vector.kVA, 2), pfOf(pf.vector)],
     ['arithmetic  Σ|V||I|', fixed(pf.arithmetic.kVA, 2), pfOf(pf.arithmetic)],
@@ -227,13 +227,19 @@ function powerFactorBlock(r: BoardResult): string {
   return renderTable([{ header: 'definition', align: 'left' }, { header: 'kVA' }, { header: 'PF' }], rows);
 }
 
+/** "7.600 kW exported; the board absorbs 1.200 kvar", or "…, with no reactive power" when none flows. */
+function exportedWords(kW: number, kvar: number): string {
+  const vars = varWords(kvar, 3);
+  return `${fixed(-kW, 3)} kW exported${vars === 'no reactive power' ? ', with no reactive power' : `; the board ${vars}`}`;
+}
+
 function powerBlock(r: BoardResult): string {
   const l = r.losses;
   const generating = r.loads.some((load) => isExport(load.kW));
   // A sub-board is fed by the board above it, through its feeder only (no source windings of its own).
   const feeding = r.incomer?.fedFrom ?? null;
   const supply = fixed(r.source.kW, 3).startsWith('-')
-    ? `  ${(feeding ? `to ${feeding}` : 'to the supply').padEnd(16)} ${fixed(-r.source.kW, 3)} kW exported; the board ${varWords(r.source.kvar, 3)}`
+    ? `  ${(feeding ? `to ${feeding}` : 'to the supply').padEnd(16)} ${exportedWords(r.source.kW, r.source.kvar)}`
     : `  ${(feeding ? `from ${feeding}` : 'from the supply').padEnd(16)} ${fixed(r.source.kW, 3)} kW, ${fixed(r.source.kvar, 3)} kvar`;
   const row = (label: string, text: string) => `  ${label.padEnd(16)} ${text}`;
   // What the board passes on to the boards it feeds (their loads and feeders): the balance's missing term on a board that feeds others.

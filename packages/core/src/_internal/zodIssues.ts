@@ -4,7 +4,7 @@
  * of public functions, so every input error reads the same way.
  */
 import type { core, ZodType } from 'zod';
-import { formatPath, InputError, inputIssue, type InputIssue } from '../errors.js';
+import { formatPath, InputError, inputIssue, namingArgument, type InputIssue } from '../errors.js';
 import { ONE_SHOT_PARSE } from './oneShotParse.js';
 import { acceptedKeysAt, nearestKey } from './acceptedKeys.js';
 
@@ -114,7 +114,7 @@ export function inputIssuesFromZod(issues: readonly core.$ZodIssue[], root: unkn
  */
 export function parseOptions<T>(schema: ZodType<T>, input: unknown, what: string): T {
   const parsed = schema.safeParse(input ?? {}, ONE_SHOT_PARSE);
-  const issues = allInputIssues(parsed.success ? [] : parsed.error.issues, input, schema);
+  const issues = namingArgument(allInputIssues(parsed.success ? [] : parsed.error.issues, input, schema), 'options');
   if (!parsed.success || issues.length) throw new InputError(issues, `${what} are not valid`);
   return parsed.data;
 }

@@ -7,8 +7,8 @@ import { abs, type ComplexValue } from '../complex.js';
 
 export interface ApparentPowerReading {
   readonly kVA: number;
-  /** P / S, signed like P (negative when the board exports). */
-  readonly pf: number;
+  /** P / S, signed like P (negative when the board exports); null when no power flows (S = 0): a PF of nothing is not defined. */
+  readonly pf: number | null;
 }
 
 export interface BoardPowerDefinitions {
@@ -24,7 +24,7 @@ export interface BoardPowerDefinitions {
   readonly unbalancedKVA: number | null;
 }
 
-const reading = (p: number, s: number): ApparentPowerReading => ({ kVA: s / 1000, pf: s === 0 ? 1 : p / s });
+const reading = (p: number, s: number): ApparentPowerReading => ({ kVA: s / 1000, pf: s === 0 ? null : p / s });
 
 /** Ve and Ie for a three-phase board (IEEE 1459; ρ = ξ = 1 on four wires). */
 export function effectiveQuantities(

@@ -4,6 +4,7 @@ import { analyseSolution } from './analyseSolution.js';
 import { studyOpenNeutral } from './studyOpenNeutral.js';
 import type { BoardResult } from './boardResult.js';
 import { assertFiniteResult } from './assertFiniteResult.js';
+import { assertBoardModel } from '../board/modelGuards.js';
 
 export interface SolveBoardOptions extends SolveOptions {
   /**
@@ -19,6 +20,7 @@ export interface SolveBoardOptions extends SolveOptions {
  * @throws {NumericalError} for a singular network or a load iteration that does not settle.
  */
 export function solveBoardModel(board: Board, options: SolveBoardOptions = {}): BoardResult {
+  assertBoardModel(board);
   const result = analyseSolution(solveNetwork(board, options));
   const wantOpen = options.openNeutral ?? board.studies.openNeutral;
   return assertFiniteResult(wantOpen ? { ...result, openNeutral: studyOpenNeutral(board, options) } : result);

@@ -3,6 +3,7 @@ import { solveInstallationNetwork } from '../network/solveNetwork.js';
 import { analyseInstallation, type AnalyseInstallationOptions } from './analyseInstallation.js';
 import type { InstallationResult } from './installationResult.js';
 import { assertFiniteResult } from './assertFiniteResult.js';
+import { assertInstallationModel } from '../board/modelGuards.js';
 
 export type SolveInstallationOptions = AnalyseInstallationOptions;
 
@@ -11,5 +12,6 @@ export type SolveInstallationOptions = AnalyseInstallationOptions;
  * @throws {NumericalError} for a singular network or a load iteration that does not settle.
  */
 export function solveInstallationModel(installation: Installation, options: SolveInstallationOptions = {}): InstallationResult {
+  assertInstallationModel(installation);
   return assertFiniteResult(analyseInstallation(solveInstallationNetwork(installation, options), options));
 }

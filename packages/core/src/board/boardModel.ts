@@ -43,7 +43,7 @@ export interface BoardLoad {
   readonly branches: readonly LoadBranch[];
   /** Where the load came from: the board file, or equipment a study added. */
   readonly origin: 'board' | 'added';
-  /** True when the file gave kW without pf, so pf 1 (a resistive load) was taken. */
+  /** True when the file gave kW without pf, so pf 1 was taken (a resistive load, or an exporter at unity PF). */
   readonly pfAssumed?: boolean;
   /** Panel-schedule fields from the file (circuit number, breaker rating, poles), when given. */
   readonly schedule?: CircuitSchedule;

@@ -129,7 +129,7 @@ function conductorIssues(conductor: ConductorSpec | undefined, path: string, fee
     const field = 'mm2' in size ? 'mm2' : 'awg' in size ? 'awg' : 'kcmil';
     const metal = materialOf(conductor);
     const hint = field === 'mm2' ? '' : conductorSizeHint(field, Object.values(size)[0], metal);
-    issues.push(inputIssue('unknown_size', `${path}.${field}`, `a ${metal} size in ${'mm2' in size ? 'IEC 60228' : 'NEC Chapter 9 Table 8'}: ${tabulatedSizes(size, metal).map((k) => k.replace(' kcmil', '')).join(', ')}${hint}`, Object.values(size)[0]));
+    issues.push(inputIssue('unknown_size', `${path}.${field}`, `${/^[aeiou]/.test(metal) ? 'an' : 'a'} ${metal} size in ${'mm2' in size ? 'IEC 60228' : 'NEC Chapter 9 Table 8'}: ${tabulatedSizes(size, metal).map((k) => k.replace(' kcmil', '')).join(', ')}${hint}`, Object.values(size)[0]));
   }
   if (perLength || ownLength) {
     if (lengthOf(conductor, feeder) === null) issues.push(inputIssue('missing', `${path}.lengthM`, 'the route length (lengthM or lengthFt, here or on the feeder)'));

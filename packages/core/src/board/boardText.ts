@@ -7,6 +7,7 @@
 import { InputError } from '../errors.js';
 import { readJsonText } from './readJsonText.js';
 import { readPlainYamlText } from './plainYamlText.js';
+import { assertText } from './modelGuards.js';
 
 export const BOARD_TEXT_LIMITS = {
   /** Deepest nesting accepted. A board file nests about 5 levels; yaml's own composer overflows the stack near 1000. */
@@ -110,6 +111,7 @@ export function refuse(code: string, expected: string, message: string): never {
 
 /** The text without a byte-order mark, once its depth and entries are within the limits. @throws {InputError} */
 export function checkedBoardText(text: string): string {
+  assertText(text);
   const body = text.charCodeAt(0) === 0xfeff ? text.slice(1) : text;
   const { depth, entries } = scanYamlShape(body);
   if (depth > BOARD_TEXT_LIMITS.maxDepth)

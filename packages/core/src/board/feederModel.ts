@@ -47,6 +47,16 @@ export function conductorImpedance(c: ConductorSpec | undefined, feeder: FeederS
   return scale(z, 1 / parallel);
 }
 
+/**
+ * A length at its usual precision (whole feet, 0.1 m), with more digits where that would print a real
+ * length as 0 (a 0.001 ft jumper is not "0 ft"), and "< 0.01" below that.
+ */
+export function lengthFigure(x: number, digits: number): string {
+  const usual = +x.toFixed(digits);
+  if (usual !== 0 || x === 0) return String(usual);
+  return x >= 0.01 ? String(+x.toPrecision(2)) : '< 0.01';
+}
+
 /** The conductor in words, e.g. `95 mm² Cu ×2, 40 m`, or null when it is given as plain ohms. */
 export function describeConductor(c: ConductorSpec | undefined, feeder: FeederSpec | undefined): string | null {
   if (!c) return null;
@@ -56,7 +66,7 @@ export function describeConductor(c: ConductorSpec | undefined, feeder: FeederSp
   const r = conductorResistance(size, materialOf(c), c.temperatureC);
   const metal = materialOf(c) === 'copper' ? 'Cu' : 'Al';
   const set = (c.parallel ?? 1) > 1 ? ` ×${c.parallel}` : '';
-  const len = length === null ? '' : c.lengthFt !== undefined || (c.lengthM === undefined && feeder?.lengthFt !== undefined) ? `, ${Math.round(length / METRES_PER_FOOT)} ft` : `, ${+length.toFixed(1)} m`;
+  const len = length === null ? '' : c.lengthFt !== undefined || (c.lengthM === undefined && feeder?.lengthFt !== undefined) ? `, ${lengthFigure(length / METRES_PER_FOOT, 0)} ft` : `, ${lengthFigure(length, 1)} m`;
   const raceway = c.conduit === 'steel' ? ', steel conduit' : '';
   return `${r?.label ?? '?'} ${metal}${set}${len} at ${r ? +r.temperatureC.toFixed(1) : '?'} °C${raceway}`;
 }

@@ -9,6 +9,7 @@ import type { Board, BoardLoad, LoadBranch, SourceUnit, Terminal, ZipFractions }
 import { phasesOf, systemHasNeutral, type PhaseId } from './systemTopology.js';
 import { nominalOfNotation, readVoltageNotation } from './conventions/voltageNotation.js';
 import { resolveConventions } from './conventions/boardConventions.js';
+import { assertNormalisableBoard } from './normalisableSpec.js';
 
 const ZIP_OF_MODEL: Record<string, ZipFractions> = {
   'constant-impedance': { z: 1, i: 0, p: 0 },
@@ -168,8 +169,17 @@ function loadBranches(load: LoadBaseSpec, index: number, spec: BoardBaseSpec, ln
   return make([[from, to]], v, v);
 }
 
-/** Turns a validated board spec into the solver's model. */
+/**
+ * Turns a validated board spec into the solver's model.
+ * @throws {InputError} for a spec lacking, or with the wrong kind of, a field it reads (see normalisableSpec.ts)
+ */
 export function normaliseBoard(spec: BoardBaseSpec): Board {
+  assertNormalisableBoard(spec);
+  return boardModelOf(spec);
+}
+
+/** normaliseBoard without the entry check: for specs built here from a checked one (an installation's boards). */
+export function boardModelOf(spec: BoardBaseSpec): Board {
   const system = spec.supply.system;
   const phases = phasesOf(system);
   const sequence = spec.supply.sequence ?? 'ABC';

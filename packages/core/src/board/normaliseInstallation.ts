@@ -1,6 +1,7 @@
 /** InstallationBaseSpec → Installation (the solver's model). Assumes a validated spec. */
 import type { Installation, SubBoard } from './boardModel.js';
-import { normaliseBoard } from './normaliseBoard.js';
+import { boardModelOf } from './normaliseBoard.js';
+import { assertNormalisableInstallation } from './normalisableSpec.js';
 import { feederModel } from './feederModel.js';
 import type { InstallationBaseSpec } from './installationSchema.js';
 import { boardSpecOf } from './installationRules.js';
@@ -18,12 +19,13 @@ const sameLimits = (a: VoltageLimits, b: VoltageLimits | undefined) =>
 const NO_FEEDER_WORDS = 'none entered (zero impedance)';
 
 export function normaliseInstallation(spec: InstallationBaseSpec): { installation: Installation; boardNumber: number[] } {
+  assertNormalisableInstallation(spec);
   const mainIndex = spec.boards.findIndex((b) => b.fedFrom === undefined);
   const boardNumber: number[] = [];
   let next = 1;
   spec.boards.forEach((_, i) => boardNumber.push(i === mainIndex ? 0 : next++));
   const numberOf = new Map(spec.boards.map((b, i) => [b.name, boardNumber[i]!]));
-  const main = normaliseBoard(boardSpecOf(spec, mainIndex));
+  const main = boardModelOf(boardSpecOf(spec, mainIndex));
   // Feeder descriptions name the phases as the file does.
   const naming = conventionsOf(main).phaseNames;
   const subBoards: SubBoard[] = new Array(spec.boards.length - 1);
@@ -32,7 +34,7 @@ export function normaliseInstallation(spec: InstallationBaseSpec): { installatio
     const modelled = feederModel(b.feeder, main.phases, main.frequencyHz, naming);
     // A sub-board written without a feeder is taken as on its feeding board's busbar: said, not left silent.
     const feeder = b.feeder === undefined ? { ...modelled, description: NO_FEEDER_WORDS } : modelled;
-    const board = normaliseBoard(boardSpecOf(spec, i));
+    const board = boardModelOf(boardSpecOf(spec, i));
     const limits = board.conventions?.voltageLimits;
     subBoards[boardNumber[i]! - 1] = {
       name: b.name,

@@ -23,6 +23,7 @@ import type { CorrectionReport, CorrectionStatus } from './correctionResult.js';
 import { arrangementNames, comparisonWording } from './correctionWording.js';
 import { balanceWorsening } from './balanceWorsening.js';
 import { assertViableBoard } from '../analysis/viableOperatingPoint.js';
+import { assertBoardModel } from '../board/modelGuards.js';
 
 /** One arrangement's outcome in figures a reader compares. */
 export interface ArrangementFigures {
@@ -91,7 +92,7 @@ export function figuresOf(r: CorrectionReport): ArrangementFigures {
   const pf = v.metering?.powerFactor ?? v.powerFactor;
   // No line current: no power factor of any definition to read (the board-wide ones default to 1 there).
   const targetPfAfter =
-    lowest === null ? null : def === 'per-line' ? lowest : def === 'effective' ? (pf.effective?.after ?? null) : def === 'positive-sequence' ? (pf.positiveSequence?.after ?? null) : def === 'vector' ? pf.vector.after : pf.arithmetic.after;
+    lowest === null ? null : def === 'per-line' ? lowest : def === 'effective' ? (pf.effective?.after ?? null) : def === 'positive-sequence' ? (pf.positiveSequence?.after ?? null) : def === 'vector' ? (pf.vector?.after ?? null) : (pf.arithmetic?.after ?? null);
   return {
     deliveredKvar: sel?.deliveredKvar ?? 0,
     nameplateKvar: sel?.nameplateKvar ?? 0,
@@ -132,6 +133,7 @@ const OVERLOAD_RANK = 1.5;
  * c.why         //=> 'delta bank: meets the target at the least cost …'
  */
 export function compareCorrections(board: Board, spec: unknown): CorrectionComparison {
+  assertBoardModel(board);
   const parsed = parseCorrectionSpec(spec, board);
   assertViableBoard(board);
   const outcomes = arrangementsFor(board).map((arrangement): ArrangementOutcome => {

@@ -27,6 +27,7 @@ import { refitReactors, selectionWithResizedReactors, type RefitOutcome } from '
 import { conventionsOf } from '../board/conventions/boardConventions.js';
 import { labellerOf, type PhaseLabeller } from '../board/conventions/phaseNames.js';
 import { regionWords } from '../board/conventions/regionWords.js';
+import { assertBoardModel } from '../board/modelGuards.js';
 
 /** @param use `limitsOnly` for the light-load sizing, read only for its limits (see ResolvedBankOptions) */
 function sizeArrangement(board: Board, spec: CorrectionSpec & { arrangement: Arrangement }, use: { limitsOnly?: boolean; heldBranches?: readonly string[] } = {}): BankSizing | CompensatorSizing {
@@ -104,6 +105,7 @@ function reactorWords(equipment: readonly EquipmentGroup[], label: PhaseLabeller
  * report.verification.board // the corrected board, for another simulator
  */
 export function correctBoard(board: Board, spec: unknown): CorrectionReport {
+  assertBoardModel(board);
   const checked = parseCorrectionSpec(spec, board);
   if (checked.arrangement === undefined)
     throw new InputError(

@@ -14,6 +14,7 @@ import { correctBoard } from './correctBoard.js';
 import { compareCorrections, type CorrectionComparison } from './compareCorrections.js';
 import type { CorrectionReport } from './correctionResult.js';
 import { installationEffect, type InstallationEffect } from './installationEffect.js';
+import { assertInstallationModel } from '../board/modelGuards.js';
 
 export interface CorrectInstallationOptions {
   /** Name of the board the equipment goes on. @defaultValue the main board */
@@ -144,6 +145,7 @@ function otherBank(bank: BankInService, board: string): OtherBankInService {
  * c.effect.boards[0].vectorPf.after // PF at the main incomer with the bank on Floor 1
  */
 export function correctInstallation(installation: Installation, spec: unknown, options?: CorrectInstallationOptions): InstallationCorrection {
+  assertInstallationModel(installation);
   const { board, placed } = placeCorrection(installation, options);
   const report = correctBoard(board, spec);
   return { ...placed, ...measuredAt(report), report, leadingWithBanks: leadingWithBanks(placed, report), effect: installationEffect(board, report.verification.equipment) };
@@ -156,6 +158,7 @@ export function correctInstallation(installation: Installation, spec: unknown, o
  * @throws {NumericalError} if a solve fails, or (reason `collapsed`) when the supply cannot carry the loads
  */
 export function compareInstallationCorrections(installation: Installation, spec: unknown, options?: CorrectInstallationOptions): InstallationComparison {
+  assertInstallationModel(installation);
   const { board, placed } = placeCorrection(installation, options);
   const comparison = compareCorrections(board, spec);
   const chosen = comparison.outcomes.find((o) => o.arrangement === comparison.recommended)?.report;

@@ -401,8 +401,9 @@ export interface LightLoadCheck {
 /** The board-wide power factors before and after (null where a definition does not exist: fewer than three phases). */
 export interface PowerFactorsBeforeAfter {
   readonly effective: BeforeAfter | null;
-  readonly vector: BeforeAfter;
-  readonly arithmetic: BeforeAfter;
+  /** Null where no power flows before or after (a board carrying nothing has no PF). */
+  readonly vector: BeforeAfter | null;
+  readonly arithmetic: BeforeAfter | null;
   readonly positiveSequence: BeforeAfter | null;
 }
 

@@ -193,8 +193,10 @@ export function checkTarget(result: TargetReadings, target: ResolvedTarget, befo
   if (target.definition !== 'per-line') {
     const pf = boardPowerFactor(result, target.definition);
     // Signed like P: an exporting board's PF is negative, and its size is what a target speaks of (as |P| per line).
+    // A board that carries no power has no PF (null) and nothing to correct: the target holds, as on its idle lines.
+    const idle = result.powerFactor.vector.kVA === 0;
     const size = pf === null ? null : Math.abs(pf);
-    const reached = size !== null && size >= target.pf - TARGET_SLACK;
+    const reached = idle || (size !== null && size >= target.pf - TARGET_SLACK);
     const notPast = size === null || target.maxLaggingPf === null || size <= target.maxLaggingPf + TARGET_SLACK;
     if (!reached) shortfalls.push(targetShortfall.boardBelow(target, pf));
     if (!notPast) shortfalls.push(targetShortfall.boardBeyond(target, pf));

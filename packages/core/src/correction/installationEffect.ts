@@ -43,7 +43,8 @@ export interface BoardEffect {
   readonly loadsOutsideVoltageBand: BeforeAfter;
   readonly neutralCurrentA: BeforeAfter | null;
   /** Vector PF |ΣP|/|ΣS| of the lines at the incomer (everything the feeder carries). */
-  readonly vectorPf: BeforeAfter;
+  /** Null where the incomer carries no power before or after: a PF of nothing is not defined. */
+  readonly vectorPf: BeforeAfter | null;
   /** Positive-sequence PF (IEEE 1459) at the incomer; null on a board with fewer than three phases. */
   readonly positiveSequencePf: BeforeAfter | null;
   /** |I2|/|I1| of the incomer currents, %; null below three phases. */
@@ -126,7 +127,8 @@ function boardEffect(before: InstallationResult, after: InstallationResult, inde
     highestVoltagePercent: beforeAfter(Math.max(...percents(rb)), Math.max(...percents(ra))),
     loadsOutsideVoltageBand: beforeAfter(outsideBand(rb), outsideBand(ra)),
     neutralCurrentA: pair(rb.neutral?.current.magnitude, ra.neutral?.current.magnitude),
-    vectorPf: beforeAfter(rb.powerFactor.vector.pf, ra.powerFactor.vector.pf),
+    // A board with no power (nothing on it, or nothing beyond it) has no PF: null, as a board result says.
+    vectorPf: pair(rb.powerFactor.vector.pf, ra.powerFactor.vector.pf),
     positiveSequencePf: pair(rb.powerFactor.positiveSequence?.pf, ra.powerFactor.positiveSequence?.pf),
     negativeSequenceCurrentPercent: pair(rb.unbalance?.currentNegativePercent, ra.unbalance?.currentNegativePercent),
     incomerKW: beforeAfter(sumOf(rb, 'kW'), sumOf(ra, 'kW')),

@@ -4,7 +4,7 @@
  * `parseCorrectionSpec` throws an `InputError`.
  */
 import type { Board } from '../board/boardModel.js';
-import { InputError, type InputIssue } from '../errors.js';
+import { InputError, namingArgument, type InputIssue } from '../errors.js';
 import { correctionSpecSchema, type CorrectionSpec } from './correctionSpec.js';
 import { CORRECTION_RULES } from './correctionRules.js';
 import { allInputIssues } from '../_internal/zodIssues.js';
@@ -20,7 +20,8 @@ export type CorrectionSpecValidation = { ok: true; spec: CorrectionSpec } | { ok
  */
 export function validateCorrectionSpec(input: unknown, board: Board): CorrectionSpecValidation {
   const parsed = correctionSpecSchema.safeParse(input, ONE_SHOT_PARSE);
-  const shapeIssues = allInputIssues(parsed.success ? [] : parsed.error.issues, input, correctionSpecSchema);
+  // A non-object is the `spec` argument's problem, not the board's.
+  const shapeIssues = namingArgument(allInputIssues(parsed.success ? [] : parsed.error.issues, input, correctionSpecSchema), 'spec');
   // Paths and lists in the board's naming: a file in L1/L2/L3 reads `target.perPhase.L3`.
   const naming = conventionsOf(board).phaseNames;
   if (!parsed.success || shapeIssues.length) return { ok: false, issues: inFileNaming(shapeIssues, naming) };

@@ -226,8 +226,8 @@ export function verifyCorrection(board: Board, options: VerifyCorrectionOptions)
   const pairOf = (b: number | null | undefined, a: number | null | undefined) => (b === null || b === undefined || a === null || a === undefined ? null : beforeAfter(b, a));
   const powerFactors = (b: BoardResult, a: BoardResult) => ({
     effective: pairOf(b.powerFactor.effective?.pf, a.powerFactor.effective?.pf),
-    vector: beforeAfter(b.powerFactor.vector.pf, a.powerFactor.vector.pf),
-    arithmetic: beforeAfter(b.powerFactor.arithmetic.pf, a.powerFactor.arithmetic.pf),
+    vector: pairOf(b.powerFactor.vector.pf, a.powerFactor.vector.pf),
+    arithmetic: pairOf(b.powerFactor.arithmetic.pf, a.powerFactor.arithmetic.pf),
     positiveSequence: pairOf(b.powerFactor.positiveSequence?.pf, a.powerFactor.positiveSequence?.pf),
   });
   const through = (r: BoardResult, key: 'kW' | 'kvar') => r.phases.reduce((sum, p) => sum + p[key], 0);

@@ -17,7 +17,10 @@ import { parseHandFigures } from './validateHandFigures.js';
 import type { HandFiguresSpec } from './handFiguresSpec.js';
 import type { Compared, EffectContribution, HandCapacitor, HandCheckResult, HandEffectId, LineCheck } from './handCheckResult.js';
 import { nominalPhaseVoltages, textbookWorking } from './textbookWorking.js';
-import { EFFECT_TITLES, effectExplanation } from './handCheckWording.js';
+import { EFFECT_TITLES, effectExplanation, handCheckWarningWords } from './handCheckWording.js';
+import { powerReading } from '../analysis/powerReading.js';
+import type { BoardWarning, PowerReading } from '../analysis/boardResult.js';
+import { assertBoardModel } from '../board/modelGuards.js';
 
 const ZERO = { re: 0, im: 0 };
 const CONSTANT_POWER = { z: 0, i: 0, p: 1 };
@@ -84,7 +87,8 @@ const figuresOf = (r: BoardResult): Figures => ({
   // A line with no current has no PF (null); hand methods take an idle line as unity.
   pf: new Map(r.phases.map((p) => [p.phase, p.pf ?? 1])),
   neutralA: r.neutral && !r.board.neutralOpen ? r.neutral.current.magnitude : null,
-  boardPf: r.powerFactor.vector.pf,
+  // A board with no power at all: 1, as the textbook working takes it (textbookWorking.ts).
+  boardPf: r.powerFactor.vector.pf ?? 1,
 });
 
 function contribution(effect: HandEffectId, explanation: string, from: Figures, to: Figures, board: Board): EffectContribution {
@@ -104,8 +108,21 @@ function contribution(effect: HandEffectId, explanation: string, from: Figures, 
  * @throws {InputError} for figures that are not valid for the board
  */
 export function addHandCapacitors(board: Board, figures: unknown): Board {
+  assertBoardModel(board);
   const plans = planCapacitors(parseHandFigures(figures, board), board);
   return { ...board, loads: [...board.loads, ...capacitorLoads(plans, board, true)] };
+}
+
+/** A reading that leads by more than the printed PF shows (a lead at 1.000 is round-off, as every table reads it). */
+const leadsVisibly = (r: Pick<PowerReading, 'pf' | 'sense'>): boolean => r.sense === 'leading' && r.pf !== null && r.pf.toFixed(3) !== '1.000';
+
+/** The lines, and the board, your capacitors leave leading: over-correction the figures alone would not say. */
+function leadingWarnings(solved: BoardResult, board: PowerReading, capacitorKvar: number, loadKvar: number, label: PhaseLabeller): BoardWarning[] {
+  const lines = solved.phases
+    .filter((p) => leadsVisibly(p))
+    .map((p): BoardWarning => ({ code: 'hand-line-leading', message: handCheckWarningWords.leadingLine(label(p.phase), p.pf!), value: p.pf!, threshold: 1 }));
+  const whole: BoardWarning[] = leadsVisibly(board) ? [{ code: 'hand-board-leading', message: handCheckWarningWords.leadingBoard(board.pf!, capacitorKvar, loadKvar), value: board.pf!, threshold: 1 }] : [];
+  return [...lines, ...whole];
 }
 
 const compared = (yours: number | null | undefined, textbook: number, solved: number): Compared => ({ yours: yours ?? null, textbook, solved, difference: solved - textbook });
@@ -121,6 +138,7 @@ const compared = (yours: number | null | undefined, textbook: number, solved: nu
  * check.effects.map((e) => e.effect) //=> ['line-pair-split', 'board-voltage', 'neutral-return', 'capacitor-voltage', 'voltage-dependent-loads']
  */
 export function checkHandFigures(board: Board, figures: unknown): HandCheckResult {
+  assertBoardModel(board);
   const spec = parseHandFigures(figures, board);
   const plans = planCapacitors(spec, board);
   const targetPf = spec.targetPf ?? null;
@@ -192,6 +210,14 @@ export function checkHandFigures(board: Board, figures: unknown): HandCheckResul
     };
   });
   const fa = figuresOf(rActual);
+  const boardPower = {
+    textbook: powerReading({ re: hand.phases.reduce((s, p) => s + p.kW, 0) * 1000, im: hand.phases.reduce((s, p) => s + p.kvarAfter, 0) * 1000 }),
+    solved: powerReading({ re: rActual.phases.reduce((s, p) => s + p.kW, 0) * 1000, im: rActual.phases.reduce((s, p) => s + p.kvar, 0) * 1000 }),
+  };
+  const warnings = [
+    ...leadingWarnings(rActual, boardPower.solved, capacitors.reduce((s, c) => s + c.kvarAtAppliedV, 0), solvedKvar, labelsOf(board)),
+    ...rActual.warnings,
+  ];
   const cautions = correctionCautions(regionWords(conventionsOf(board).region, board.system).groundWord);
   return {
     board: { name: board.name, system: board.system, nominalLineToNeutralV: board.nominalLineToNeutralV, frequencyHz: board.frequencyHz },
@@ -202,7 +228,10 @@ export function checkHandFigures(board: Board, figures: unknown): HandCheckResul
     lines,
     neutralA: fa.neutralA !== null && textbookFigures.neutralA !== null ? compared(expected?.neutralA, textbookFigures.neutralA, fa.neutralA) : null,
     boardPf: compared(expected?.pf, hand.boardPf, fa.boardPf),
+    boardPower,
     effects,
+    warnings,
+    operatingPoint: { collapsed: rActual.operatingPoint.collapsed, findings: rActual.operatingPoint.findings },
     cautions: [...cautions, ...rActual.cautions.filter((c) => !cautions.includes(c))],
   };
 }

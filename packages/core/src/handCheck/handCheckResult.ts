@@ -4,7 +4,7 @@
  * load convention (Q > 0 lagging).
  */
 import type { PhaseId } from '../board/boardModel.js';
-import type { PowerFactorSense } from '../analysis/boardResult.js';
+import type { BoardWarning, OperatingPoint, PowerFactorSense, PowerReading } from '../analysis/boardResult.js';
 import type { HandBranch } from './handFiguresSpec.js';
 import type { PhaseNaming } from '../board/conventions/phaseNames.js';
 
@@ -91,7 +91,16 @@ export interface HandCheckResult {
   readonly neutralA: Compared | null;
   /** Vector power factor of the board, ΣP/|ΣS| (negative when the board exports). */
   readonly boardPf: Compared;
+  /** The board's total power with the capacitors, textbook and solved: the sense beside the board PF. */
+  readonly boardPower: { readonly textbook: PowerReading; readonly solved: PowerReading };
   /** In the order they are switched on; their sum is solved − textbook for every figure. */
   readonly effects: readonly EffectContribution[];
+  /**
+   * The board as it runs with your capacitors: lines and board led by them, then the solved board's own
+   * warnings (ratings, voltage limits, neutral), as `trivar solve` gives them.
+   */
+  readonly warnings: readonly BoardWarning[];
+  /** The solved board's operating point with the capacitors: `collapsed` is the state `trivar solve` refuses. */
+  readonly operatingPoint: Pick<OperatingPoint, 'collapsed' | 'findings'>;
   readonly cautions: readonly string[];
 }

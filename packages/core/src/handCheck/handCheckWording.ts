@@ -41,3 +41,11 @@ export const effectExplanation = {
 
 export const HAND_CHECK_METHOD =
   'Each effect is switched on in turn, in the order listed, and the board solved again; an effect\'s size is how far it moves the figure. The effects add up to the whole difference between the textbook figure and the solved board.';
+
+/** What the capacitors do to the board that a hand check must say, beside the figures. */
+export const handCheckWarningWords = {
+  leadingLine: (line: PhaseLabel, pf: number): string =>
+    `line ${line} leads at PF ${f(pf, 3)} with your capacitors in: they supply more reactive power than the loads on it draw (over-correction)`,
+  leadingBoard: (pf: number, capacitorKvar: number, loadKvar: number): string =>
+    `the board leads at PF ${f(pf, 3)} with your capacitors in: they give ${f(capacitorKvar, 2)} kvar at the solved voltages, ${loadKvar > 0 ? `against ${f(loadKvar, 2)} kvar drawn by its loads` : 'and its loads draw no lagging reactive power'}`,
+};

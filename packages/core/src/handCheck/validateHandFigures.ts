@@ -1,6 +1,6 @@
 /** Hand figures checked for shape (zod) and against the board (its phases and neutral). */
 import type { Board } from '../board/boardModel.js';
-import { InputError, inputIssue, type InputIssue } from '../errors.js';
+import { InputError, inputIssue, namingArgument, type InputIssue } from '../errors.js';
 import { inputIssuesFromZod } from '../_internal/zodIssues.js';
 import { handFiguresSchema, type HandFiguresSpec } from './handFiguresSpec.js';
 import { Speller } from '../board/conventions/readTradeSpellings.js';
@@ -58,7 +58,7 @@ function boardRules(spec: HandFiguresSpec, board: Board): InputIssue[] {
 export function parseHandFigures(input: unknown, board: Board): HandFiguresSpec {
   const spelt = readFigureSpellings(input);
   const parsed = handFiguresSchema.safeParse(spelt.input, ONE_SHOT_PARSE);
-  const issues = [...spelt.issues, ...(parsed.success ? boardRules(parsed.data, board) : inputIssuesFromZod(parsed.error.issues, spelt.input, [], { schema: handFiguresSchema, input: spelt.input }))];
+  const issues = namingArgument([...spelt.issues, ...(parsed.success ? boardRules(parsed.data, board) : inputIssuesFromZod(parsed.error.issues, spelt.input, [], { schema: handFiguresSchema, input: spelt.input }))], 'figures');
   // Paths point at the figures as written (expected.lines.L2, not .B).
   if (issues.length || !parsed.success) throw new InputError(inFileNaming(issues, spelt.naming), 'the hand figures are not valid');
   return parsed.data;

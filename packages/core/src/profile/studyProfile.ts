@@ -20,6 +20,7 @@ import { allocateFigures, solveBatch, type BatchSolveOptions, type IntervalFigur
 import { summariseFigures, type ProfileSummary, type ResolvedLimits, type SummaryContext } from './summariseFigures.js';
 import { createZoneClock, monthKeyOf } from './zoneClock.js';
 import { PROFILE_CAUTIONS } from './profileWording.js';
+import { assertProfileInput } from '../board/modelGuards.js';
 
 export interface ProfileStudyInput {
   /** The board as the drivers see it (see planColumns: metered phases added). */
@@ -196,6 +197,7 @@ export function profileClock(utcMs: Float64Array, zone: string): { localMs: Floa
 }
 
 export function studyProfile(input: ProfileStudyInput, options: ProfileStudyOptions = {}): ProfileStudy {
+  assertProfileInput(input);
   const { board } = input;
   const n = input.columns.count;
   const zone = options.timeZone ?? 'UTC';

@@ -7,6 +7,7 @@ import type { Board } from '../board/boardModel.js';
 import { installationOf } from '../network/installationModel.js';
 import { rebalanceInstallation, type RebalanceOptions } from './rebalanceInstallation.js';
 import type { RebalanceReport } from './rebalanceResult.js';
+import { assertBoardModel } from '../board/modelGuards.js';
 
 export type { RebalanceOptions } from './rebalanceInstallation.js';
 
@@ -25,6 +26,7 @@ export type { RebalanceOptions } from './rebalanceInstallation.js';
  * report.moves //=> [{ board: 'Studio', circuit: 3, name: 'Kitchen sockets', from: 'A-N', to: 'C-N' }]
  */
 export function rebalanceBoard(board: Board, study: unknown, options: RebalanceOptions = {}): RebalanceReport {
+  assertBoardModel(board);
   const { installation } = installationOf(board);
   if (installation.subBoards.length === 0) return rebalanceInstallation(installation, study, options);
   const name = board.name;

@@ -41,6 +41,7 @@ import { installationInCondition, moveInstallationCircuits } from './applyMoves.
 import type { BoardVoltageComparison, CapacityExcess, CircuitMove, ConditionComparison, MoveTableRow, RebalanceReport } from './rebalanceResult.js';
 import { REBALANCE_CAUTIONS, REBALANCE_NOTES } from './rebalanceWording.js';
 import { bankInServiceWords, listedBanksInService } from '../analysis/banksInServiceWords.js';
+import { assertInstallationModel } from '../board/modelGuards.js';
 
 const optionsSchema = z.strictObject({
   method: z.enum(['auto', 'exact', 'local-search']).optional(),
@@ -302,6 +303,7 @@ function voltageComparisons(
  * report.moves //=> [{ board: 'Floor 3', circuit: 1, name: 'Flat 3A', from: 'A-N', to: 'B-N' }]
  */
 export function rebalanceInstallation(installation: Installation, study: unknown, options: RebalanceOptions = {}): RebalanceReport {
+  assertInstallationModel(installation);
   const o = resolveOptions(options);
   const tree = rebalanceTree(installation);
   const resolved = resolveRebalanceSpec(study, tree, { profile: options.profile, loadConditions: options.loadConditions });

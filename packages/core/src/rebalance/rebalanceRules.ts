@@ -6,7 +6,7 @@
  */
 import type { Board } from '../board/boardModel.js';
 import type { ConnectionSpec } from '../board/boardSchema.js';
-import { InputError, inputIssue, type InputIssue } from '../errors.js';
+import { InputError, inputIssue, namingArgument, type InputIssue } from '../errors.js';
 import { inputIssuesFromZod } from '../_internal/zodIssues.js';
 import { complex, type ComplexValue } from '../complex.js';
 import type { ProfileSpec } from '../profile/profileSpec.js';
@@ -234,7 +234,7 @@ function boardIssues(spec: RebalanceSpec, tree: RebalanceTree, movable: boolean[
 export function resolveRebalanceSpec(input: unknown, tree: RebalanceTree, context: RebalanceContext = {}): ResolvedRebalance {
   const parsed = rebalanceSpecSchema.safeParse(input ?? {}, ONE_SHOT_PARSE);
   const board = tree.boards[0]!;
-  if (!parsed.success) throw new InputError(inFileNaming(inputIssuesFromZod(parsed.error.issues, input ?? {}, [], { schema: rebalanceSpecSchema, input: input ?? {} }), conventionsOf(board).phaseNames), 'the rebalancing study is not valid');
+  if (!parsed.success) throw new InputError(inFileNaming(namingArgument(inputIssuesFromZod(parsed.error.issues, input ?? {}, [], { schema: rebalanceSpecSchema, input: input ?? {} }), 'study'), conventionsOf(board).phaseNames), 'the rebalancing study is not valid');
   const spec = parsed.data;
   const pinned = new Map<number, ConnectionSpec>();
   const conditions: ResolvedCondition[] = [];

@@ -7,6 +7,7 @@
 import { isMap, isSeq, parseDocument, type YAMLMap } from 'yaml';
 import type { CircuitMove } from './rebalanceResult.js';
 import { readPhaseTerm, spellIn } from '../board/conventions/phaseNames.js';
+import { assertText } from '../board/modelGuards.js';
 
 /** The new connection in the naming the file wrote the old one in (L1-N for a file in L1/L2/L3). */
 const asWritten = (old: unknown, to: string) => spellIn((typeof old === 'string' && readPhaseTerm(old)?.naming) || 'A/B/C', to);
@@ -44,6 +45,7 @@ function yamlLoads(doc: ReturnType<typeof parseDocument>, m: Move) {
  * //=> 'loads:\n  - { name: Kettle, connection: B-N, kW: 2 }\n'
  */
 export function rewriteBoardText(text: string, moves: readonly Move[]): string {
+  assertText(text);
   if (/^\s*\{/.test(text)) {
     const file = JSON.parse(text) as JsonBoard & { boards?: JsonBoard[] };
     for (const m of moves) {

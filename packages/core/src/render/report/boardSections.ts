@@ -11,8 +11,9 @@ function impedanceWords(z: NonNullable<BoardBaseSpec['supply']['impedance']>, na
     .map((p) => `${labelIn(naming, p)} ${(z[p] as ImpedanceSpec).r} + j${(z[p] as ImpedanceSpec).x} Ω`)
     .join(', ');
 }
-import type { BoardResult, LoadReading } from '../../analysis/boardResult.js';
+import type { BoardResult, LoadReading, PowerReading } from '../../analysis/boardResult.js';
 import { fixed } from '../svgText.js';
+import { assumedPfNote, powerFactorText, signedPfText } from '../powerFactorText.js';
 import { WARNING_THRESHOLDS } from '../../analysis/boardWarnings.js';
 import { labelIn, type PhaseNaming } from '../../board/conventions/phaseNames.js';
 import { bandVolts, bandVoltsWords, bandWords, judgeVoltage } from '../../board/conventions/voltageLimits.js';
@@ -28,7 +29,10 @@ const SYSTEM_WORDS: Readonly<Record<string, string>> = {
   'single-phase': 'single-phase 2-wire',
 };
 
-const pfWords = (pf: number | null, sense: string): string => (pf === null ? '—' : `${fixed(pf, 3)}${sense === 'unity' ? '' : sense === 'lagging' ? ' lag' : ' lead'}`);
+/** A reading's PF as the text tables print it (export, no tag at 1.000 with 0.00 kvar); — for none. */
+const pfWords = (r: Pick<PowerReading, 'pf' | 'sense' | 'kVA' | 'kW' | 'kvar'>): string => powerFactorText(r, '—');
+/** A current's angle, where the current prints as more than 0.0 A (a round-off current's angle is noise), as `trivar solve` leaves it. */
+const currentAngle = (i: { magnitude: number; angleDeg: number }): string => (fixed(i.magnitude, 1) === '0.0' ? '' : fixed(i.angleDeg, 1));
 const orDash = (x: number | null | undefined, digits: number): string => (x === null || x === undefined ? '—' : fixed(x, digits));
 
 export function conductorWords(line: NonNullable<BoardBaseSpec['feeder']>['line'], feeder?: BoardBaseSpec['feeder'], naming: PhaseNaming = 'A/B/C'): string {
@@ -111,7 +115,7 @@ export function scheduleTable(loads: BoardBaseSpec['loads'], result: BoardResult
       fixed(l.kW, 2),
       fixed(l.kvar, 2),
       fixed(l.currentA, 1),
-      `${pfWords(l.pf, l.sense)}${l.pfAssumed ? ' *' : ''}`,
+      `${pfWords(l)}${l.pfAssumed ? ' *' : ''}`,
       worst ? fixed(worst.voltagePercent, 1) : '—',
     ];
   });
@@ -133,7 +137,7 @@ export function scheduleTable(loads: BoardBaseSpec['loads'], result: BoardResult
     rows,
     note: `A: largest current the circuit draws from one line. V %nom: the lowest voltage across any part of the circuit, % of its nominal voltage.${
       loads.some((l) => l.breakerA !== undefined || l.circuit !== undefined) ? '' : ' No. and breaker: from the circuit, breakerA and poles fields of each load in the board file (none given here).'
-    }${boardLoads.some((l) => l.pfAssumed) ? ' *: pf not given in the file, taken as 1 (a resistive load).' : ''}`,
+    }${boardLoads.some((l) => l.pfAssumed) ? ` ${assumedPfNote(boardLoads.filter((l) => l.pfAssumed).map((l) => l.kW))}` : ''}`,
   };
 }
 
@@ -218,15 +222,15 @@ export function resultBlocks(result: BoardResult, options: ResultBlockOptions = 
     fixed(p.voltage.angleDeg, 1),
     fixed(p.voltagePercent, 1),
     fixed(p.current.magnitude, 1),
-    fixed(p.current.angleDeg, 1),
+    currentAngle(p.current),
     fixed(p.kW, 2),
     fixed(p.kvar, 2),
-    pfWords(p.pf, p.sense),
+    pfWords(p),
     orDash(p.loadingPercent, 0),
   ]);
   if (result.neutral) {
     const n = result.neutral;
-    rows.push(['N', n.barVoltage ? fixed(n.barVoltage.magnitude, 1) : '—', n.barVoltage ? fixed(n.barVoltage.angleDeg, 1) : '—', '', fixed(n.current.magnitude, 1), fixed(n.current.angleDeg, 1), '', '', '', orDash(n.loadingPercent, 0)]);
+    rows.push(['N', n.barVoltage ? fixed(n.barVoltage.magnitude, 1) : '—', n.barVoltage ? fixed(n.barVoltage.angleDeg, 1) : '—', '', fixed(n.current.magnitude, 1), currentAngle(n.current), '', '', '', orDash(n.loadingPercent, 0)]);
   }
   blocks.push({
     kind: 'table',
@@ -253,11 +257,12 @@ export function resultBlocks(result: BoardResult, options: ResultBlockOptions = 
     ['Loads', `${fixed(result.totals.kW, 2)} kW, ${fixed(result.totals.kvar, 2)} kvar`],
     ['Losses in source and feeder', `${fixed(result.losses.totalKW, 3)} kW`],
     ['From the source', `${fixed(result.source.kW, 2)} kW, ${fixed(result.source.kvar, 2)} kvar`],
-    ['Power factor, vector |ΣS|', `${fixed(pf.vector.pf, 3)} (${fixed(pf.vector.kVA, 2)} kVA)`],
-    ['Power factor, arithmetic Σ|V||I|', `${fixed(pf.arithmetic.pf, 3)} (${fixed(pf.arithmetic.kVA, 2)} kVA)`],
+    // A PF of nothing (no power flows) is "—"; an exporting board's reads "1.000 export", as in trivar solve.
+    ['Power factor, vector |ΣS|', `${signedPfText(pf.vector.pf, '—')} (${fixed(pf.vector.kVA, 2)} kVA)`],
+    ['Power factor, arithmetic Σ|V||I|', `${signedPfText(pf.arithmetic.pf, '—')} (${fixed(pf.arithmetic.kVA, 2)} kVA)`],
   ];
-  if (pf.effective) facts.push(['Power factor, effective (IEEE 1459)', `${fixed(pf.effective.pf, 3)} (${fixed(pf.effective.kVA, 2)} kVA)`]);
-  if (pf.positiveSequence) facts.push(['Power factor, positive sequence', `${fixed(pf.positiveSequence.pf, 3)}`]);
+  if (pf.effective) facts.push(['Power factor, effective (IEEE 1459)', `${signedPfText(pf.effective.pf, '—')} (${fixed(pf.effective.kVA, 2)} kVA)`]);
+  if (pf.positiveSequence) facts.push(['Power factor, positive sequence', signedPfText(pf.positiveSequence.pf, '—')]);
   const u = result.unbalance;
   if (u) {
     facts.push(['Voltage unbalance factor |V2|/|V1| (IEC)', `${fixed(u.voltageFactorPercent, 2)} %`]);

@@ -32,6 +32,9 @@ export function lossChangeWords(beforeKW: number, afterKW: number, reductionKW: 
   return `${fixed(beforeKW, 3)} → ${fixed(afterKW, 3)} kW (${change})`;
 }
 
+/** A PF before → after; none where no power flows (a PF of nothing is not defined). */
+const pfChange = (x: { readonly before: number; readonly after: number } | null): string => (x === null ? '—' : `${fixed(x.before, 3)} → ${fixed(x.after, 3)}`);
+
 function equipmentTable(report: CorrectionReport): ReportBlock | null {
   const sel = report.selection;
   if (!sel) return null;
@@ -71,7 +74,7 @@ function meteringFacts(report: CorrectionReport): [string, string][] {
   const lowest = (phases: typeof m.after.phases) => Math.min(...phases.map((p) => p.pf ?? 1));
   return [
     ['Target measured at', where],
-    ['Power factor there, vector', `${fixed(m.powerFactor.vector.before, 3)} → ${fixed(m.powerFactor.vector.after, 3)}`],
+    ['Power factor there, vector', pfChange(m.powerFactor.vector)],
     ['Lowest line power factor there', `${fixed(lowest(m.before.phases), 3)} → ${fixed(lowest(m.after.phases), 3)}`],
   ];
 }
@@ -130,7 +133,7 @@ export function correctionSection(report: CorrectionReport, comparison: Correcti
         ['Arrangement', arrangementWords(report)],
         ['Outcome', report.status.replace(/-/g, ' ')],
         ...meteringFacts(report),
-        ['Power factor, vector', `${fixed(v.powerFactor.vector.before, 3)} → ${fixed(v.powerFactor.vector.after, 3)}`],
+        ['Power factor, vector', pfChange(v.powerFactor.vector)],
         ...(v.powerFactor.effective ? ([['Power factor, effective (IEEE 1459)', `${fixed(v.powerFactor.effective.before, 3)} → ${fixed(v.powerFactor.effective.after, 3)}`]] as [string, string][]) : []),
         ...(v.neutralCurrentA ? ([['Neutral current', `${fixed(v.neutralCurrentA.before, 1)} → ${fixed(v.neutralCurrentA.after, 1)} A`]] as [string, string][]) : []),
         ['Apparent power released at the source', `${fixed(v.releasedKVA.source, 2)} kVA`],

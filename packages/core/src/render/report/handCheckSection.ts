@@ -6,6 +6,7 @@
 import type { HandCheckResult } from '../../handCheck/handCheckResult.js';
 import type { PowerFactorSense } from '../../analysis/boardResult.js';
 import { fixed } from '../svgText.js';
+import { powerFactorText } from '../powerFactorText.js';
 import type { ReportBlock, ReportColumn, ReportSection } from './reportDocument.js';
 import { labelIn, type PhaseNaming } from '../../board/conventions/phaseNames.js';
 
@@ -86,7 +87,7 @@ function comparedTable(r: HandCheckResult, label: Label): ReportBlock {
     rows.push([label(l.phase), 'PF', orDash(l.pf.yours, 3), `${fixed(l.pf.textbook, 3)}${senseWord(l.senseTextbook)}`, `${fixed(l.pf.solved, 3)}${senseWord(l.senseSolved)}`, signed(l.pf.difference, 3)]);
   }
   if (r.neutralA) rows.push(['N', 'current A', orDash(r.neutralA.yours, 1), fixed(r.neutralA.textbook, 1), fixed(r.neutralA.solved, 1), signed(r.neutralA.difference, 1)]);
-  rows.push(['board', 'PF (vector)', orDash(r.boardPf.yours, 3), fixed(r.boardPf.textbook, 3), fixed(r.boardPf.solved, 3), signed(r.boardPf.difference, 3)]);
+  rows.push(['board', 'PF (vector)', orDash(r.boardPf.yours, 3), powerFactorText(r.boardPower.textbook), powerFactorText(r.boardPower.solved), signed(r.boardPf.difference, 3)]);
   return {
     kind: 'table',
     caption: 'Predicted against solved, with your capacitors in',
@@ -149,6 +150,8 @@ export function handCheckSection(r: HandCheckResult, triangles?: string, naming:
     comparedTable(r, label),
     effectsTable(r, label),
     { kind: 'list', items: r.effects.map((e) => `${e.title}: ${e.explanation}`) },
+    // What the capacitors do to the board (leading lines, ratings, voltages), as `trivar check` warns.
+    ...(r.warnings.length ? [{ kind: 'list' as const, tone: 'warning' as const, items: r.warnings.map((w) => w.message) }] : []),
   ];
   if (triangles) blocks.push({ kind: 'figure', name: 'hand-check-triangles', caption: 'Line current triangles without and with your capacitors', svg: triangles });
   return { id: 'hand-check', title: 'Hand calculation checked', blocks };

@@ -20,6 +20,7 @@ import type { PhaseLabeller } from '../../board/conventions/phaseNames.js';
 import { fixed } from '../svgText.js';
 import { renderImpedanceScan } from '../renderImpedanceScan.js';
 import type { ReportBlock } from './reportDocument.js';
+import { signedPfText } from '../powerFactorText.js';
 
 export const orDash = (x: number | null | undefined, d: number): string => (x === null || x === undefined ? '—' : fixed(x, d));
 /** Orders shown as columns (more would not fit a printed page); every order stays in the JSON. */
@@ -49,7 +50,7 @@ export function harmonicVoltageTable(lines: readonly HarmonicLineReading[], labe
     kind: 'table',
     caption,
     columns: [{ label: 'Line' }, { label: 'rms V', align: 'right' }, { label: 'THD %', align: 'right' }, { label: 'true PF', align: 'right' }, { label: 'displacement PF', align: 'right' }],
-    rows: lines.map((l) => [label(l.phase), fixed(l.voltage.rms, 1), orDash(l.voltage.thdPercent, 1), orDash(l.truePf, 3), orDash(l.displacementPf, 3)]),
+    rows: lines.map((l) => [label(l.phase), fixed(l.voltage.rms, 1), orDash(l.voltage.thdPercent, 1), signedPfText(l.truePf, '—'), signedPfText(l.displacementPf, '—')]),
   };
 }
 

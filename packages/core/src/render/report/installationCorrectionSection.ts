@@ -40,7 +40,7 @@ export function installationCorrectionSection(effect: InstallationEffect): Repor
         columns: [{ label: 'Board' }, num('PF at incomer'), num('Incomer kvar'), num('Largest feeder A'), num('Lowest V %nom'), num('Feeder loss kW')],
         rows: effect.boards.map((b) => [
           `${b.name}${b.hasEquipment ? ' (equipment here)' : ''}`,
-          change(b.vectorPf, 3),
+          b.vectorPf === null ? '—' : change(b.vectorPf, 3),
           change(b.incomerKvar, 1),
           change(b.feeder.largestLineCurrentA, 1),
           change(b.lowestVoltagePercent, 1),

@@ -8,6 +8,7 @@
 import type { BoardHarmonics, InstallationHarmonicsReport } from '../../harmonics/harmonicsResult.js';
 import { labellerOf, type PhaseLabeller } from '../../board/conventions/phaseNames.js';
 import { fixed } from '../svgText.js';
+import { signedPfText } from '../powerFactorText.js';
 import type { ReportBlock, ReportSection } from './reportDocument.js';
 import { dutyBlocks, harmonicCurrentTable, jointScanBlocks, harmonicVoltageTable, neutralBlocks, orDash, scanBlocks, spectraList, tddTable, voltageDistortionTable } from './harmonicsBlocks.js';
 
@@ -44,7 +45,7 @@ function boardsTable(r: InstallationHarmonicsReport, label: PhaseLabeller): Repo
         n ? fixed(n.current.rms, 1) : '—',
         orDash(b.triplenNeutralA, 1),
         n === null || n.loadingPercent === null ? '—' : `${fixed(n.loadingPercent, 0)}${n.overloaded ? ' OVER' : ''}`,
-        orDash(b.powerFactor.true, 3),
+        signedPfText(b.powerFactor.true, '—'),
       ];
     }),
     note: 'V THD: the busbar voltage with the highest THD; Feeder A: the largest line current of the feeder into the board (the service feeder at the main board) and its THD; Triplen A: orders 3, 9, 15… in that feeder’s neutral; N load: % of its neutral rating.',

@@ -150,6 +150,10 @@ export function totalsSection(result: InstallationResult): ReportSection {
   return { id: 'totals', title: 'Installation totals', blocks: [{ kind: 'facts', items }] };
 }
 
+/** A board without circuits of its own: it feeds other boards, or nothing is connected to it at all. */
+const noCircuitsWords = (feedsOthers: boolean): string =>
+  feedsOthers ? 'No circuits of its own: this board only feeds others.' : 'No circuits: nothing is connected to this board, and it feeds no other board.';
+
 /** One board of the installation: where it is fed from, its panel schedule and its solved figures. */
 export function boardSection(spec: InstallationBaseSpec, result: InstallationResult, board: InstallationBoardResult, id: string): ReportSection {
   const own = boardSpecOf(spec, specIndex(spec, board.name));
@@ -165,7 +169,7 @@ export function boardSection(spec: InstallationBaseSpec, result: InstallationRes
         ['Circuits', `${own.loads.length}`],
       ],
     },
-    ...(own.loads.length ? [scheduleTable(own.loads, board.result)] : [{ kind: 'paragraph' as const, text: 'No circuits of its own: this board only feeds others.' }]),
+    ...(own.loads.length ? [scheduleTable(own.loads, board.result)] : [{ kind: 'paragraph' as const, text: noCircuitsWords(result.boards.some((b) => b.fedFrom === board.name)) }]),
     ...resultBlocks(board.result, { figurePrefix: `${id}-`, sequenceFigure: false }),
   ];
   return { id, title: `Board: ${board.name}`, blocks };

@@ -1,0 +1,41 @@
+/**
+ * A power factor as every table prints it, beside the power it belongs to. Figures keep the load
+ * convention (+kW consumed, +kvar absorbed); a lag/lead tag only means something for power taken
+ * from the supply, so where active power flows back the cell says "export" (and the text says which
+ * way the vars go). A PF that prints as 1.000 with vars that print as 0.00 gets no tag: a lamp of 1 W
+ * on a 10 kW phase must not make the line read "1.000 lag". No power at all has no PF: `none`.
+ */
+import type { PowerReading } from '../analysis/boardResult.js';
+import { fixed } from './svgText.js';
+
+/** True when the power, as printed to 2 decimals, flows back toward the supply. */
+export const isExportKW = (kW: number): boolean => fixed(kW, 2).startsWith('-');
+
+export function powerFactorText(r: Pick<PowerReading, 'pf' | 'sense' | 'kVA' | 'kW' | 'kvar'>, none = '-'): string {
+  if (r.pf === null || fixed(r.kVA, 2) === '0.00') return none;
+  const pf = fixed(Math.abs(r.pf), 3);
+  if (isExportKW(r.kW)) return `${pf} export`;
+  const noVars = Number(fixed(Math.abs(r.kvar), 2)) === 0 && pf === '1.000';
+  const sense = noVars ? '' : r.sense === 'lagging' ? ' lag' : r.sense === 'leading' ? ' lead' : '';
+  return `${pf}${sense}`;
+}
+
+/**
+ * A signed board PF (P/S, negative when the board exports, as BoardResult's power definitions give it)
+ * in the same words: "0.950", "1.000 export", `none` where no power flows (pf null).
+ */
+export function signedPfText(pf: number | null, none = '-'): string {
+  if (pf === null) return none;
+  const shown = fixed(Math.abs(pf), 3);
+  return pf < 0 && fixed(pf, 3) !== '0.000' ? `${shown} export` : shown;
+}
+
+/**
+ * The footnote for circuits given in kW without a pf (`*`), from the kW of those circuits: a consumer
+ * taken at pf 1 is a resistive load, an exporter (a generator, PV) simply runs at unity power factor.
+ */
+export function assumedPfNote(assumedKW: readonly number[]): string {
+  const exporters = assumedKW.filter((kW) => kW < 0).length;
+  const why = exporters === 0 ? ' (a resistive load)' : exporters === assumedKW.length ? ' (exporting at unity power factor)' : '';
+  return `*: pf not given in the file, taken as 1${why}.`;
+}
