@@ -99,7 +99,7 @@ describe('trivar check', () => {
     it('2000 kvar collapses the board: figures and warnings written, then the error and exit 4 that trivar solve gives', () => {
       const r = runTrivar(['check', garage, figures(2000)]);
       expect(r.code).toBe(4);
-      expect(r.stdout).toContain('phase L1 at the board is 23.0 V, 19.2 % of nominal');
+      expect(r.stdout).toContain('line-to-neutral L1-N at the board is 23.0 V, 19.2 % of nominal');
       expect(r.stderr).toMatch(/^error: no viable operating point: the supply cannot carry these loads: the board voltage has collapsed/);
     });
 
