@@ -466,7 +466,7 @@ export interface MeteringReadings {
  * (the capacitor-only objective with the reactors as unknowns), and whether the build uses them.
  */
 export interface ReactorResizing {
-  /** Per reactor branch: output at nominal voltage beside the exact capacitors and beside the built ones, kvar (inductive, ≥ 0). */
+  /** Per reactor branch: output at nominal voltage beside the exact capacitors and beside the built ones, kvar (inductive, ≥ 0); where the build meets both targets as sized nothing is re-sized, and the two are equal. */
   readonly reactors: readonly { readonly branch: string; readonly sizedKvar: number; readonly resizedKvar: number }[];
   /** Weighted residual Σ wₖ·rₖ² (I2, I0, Q1 − target, per unit) with the reactors as sized and as re-sized. */
   readonly objectiveSized: number;

@@ -120,6 +120,13 @@ export function refitReactors(board: Board, built: readonly EquipmentGroup[], in
   const objectiveOf = (state: ProbeState) => compensatorResidual(state, bases).reduce((s, r, k) => s + weights[k]! * r * r, 0);
   // Targets met (the PF target, the balance target): more is better, then the lower residual.
   const targetsMet = (state: ProbeState) => Number(checkTarget(state.result, input.target, start.result).met) + Number(checkBalance(state.result, input.balance).met);
+  const sizedState = probe.at(sizedKvar);
+  const objectiveSized = objectiveOf(sizedState);
+  const metSized = targetsMet(sizedState);
+  const reactors = (resized: readonly number[]) => slots.map((s, i) => ({ branch: s.branch, sizedKvar: sizedKvar[i]!, resizedKvar: resized[i]! }));
+  // A build that meets both targets as sized stays as it is: nothing is re-sized (re-sized = as sized).
+  if (metSized === 2)
+    return { equipment: withReactors(sizedKvar), reactors: reactors(sizedKvar), objectiveSized, objectiveResized: objectiveSized, converged: true, used: false, solves: inner.solves() };
   const outcome = solveCapacitorOnlyCompensator(probe, bases, {
     weights,
     ridge: CORRECTION_DEFAULTS.compensatorRidge,
@@ -138,18 +145,15 @@ export function refitReactors(board: Board, built: readonly EquipmentGroup[], in
   const trimmedState = trimmed.every((q, i) => q === outcome.state.kvar[i]) ? outcome.state : probe.at(trimmed);
   const keepSmall = targetsMet(trimmedState) < targetsMet(outcome.state);
   const { kvar: resized, state: resizedState } = withoutHarmfulReactors(probe, keepSmall ? outcome.state : trimmedState, targetsMet);
-  const sizedState = probe.at(sizedKvar);
-  const objectiveSized = objectiveOf(sizedState);
   const objectiveResized = objectiveOf(resizedState);
-  const [metSized, metResized] = [targetsMet(sizedState), targetsMet(resizedState)];
+  const metResized = targetsMet(resizedState);
   return {
     equipment: withReactors(resized),
-    reactors: slots.map((s, i) => ({ branch: s.branch, sizedKvar: sizedKvar[i]!, resizedKvar: resized[i]! })),
+    reactors: reactors(resized),
     objectiveSized,
     objectiveResized,
     converged: outcome.converged,
-    // A build that meets both targets as sized stays as it is.
-    used: metSized < 2 && (metResized > metSized || (metResized === metSized && objectiveResized < objectiveSized)),
+    used: metResized > metSized || (metResized === metSized && objectiveResized < objectiveSized),
     solves: inner.solves(),
   };
 }
