@@ -25,6 +25,10 @@ import {
   solveBoardModel,
   solveInstallationModel,
   studyProfile,
+  studyScenarios,
+  studyInstallationScenarios,
+  studyInstallationProfile,
+  analyseHarmonics,
 } from '@trivar/core';
 
 const rawBoard = {
@@ -60,6 +64,8 @@ describe('a board argument that is not a normalised board', () => {
     ['solveBoardModel(raw spec)', () => solveBoardModel(rawBoard as never)],
     ['checkHandFigures(raw spec)', () => checkHandFigures(rawBoard as never, { capacitors: [] })],
     ['addHandCapacitors(undefined)', () => addHandCapacitors(undefined as never, { capacitors: [] })],
+    ['studyScenarios(raw spec)', () => studyScenarios(rawBoard as never, {})],
+    ['analyseHarmonics(raw spec)', () => analyseHarmonics(rawBoard as never, {} as never)],
   ])('%s: InputError naming "board"', (_, call) => {
     const { message, path, error } = refusal(call);
     expect(path).toBe('board');
@@ -78,6 +84,7 @@ describe('an installation argument that is not a normalised installation', () =>
     ['correctInstallation(raw spec)', () => correctInstallation(rawInstallation as never, { arrangement: 'star-bank' })],
     ['rebalanceInstallation(raw spec)', () => rebalanceInstallation(rawInstallation as never, {})],
     ['solveInstallationModel(a board)', () => solveInstallationModel(board as never)],
+    ['studyInstallationScenarios(raw spec)', () => studyInstallationScenarios(rawInstallation as never, {})],
   ])('%s: InputError naming "installation"', (_, call) => {
     const { message, path } = refusal(call);
     expect(path).toBe('installation');
@@ -166,5 +173,13 @@ describe('normaliseBoard and normaliseInstallation check what they read', () => 
 
   it('a validated spec normalises as before', () => {
     expect(board.loads[0]!.branches[0]!.sNominal.re).toBeCloseTo(5000, 9);
+  });
+});
+
+describe('an installation profile input without a normalised installation', () => {
+  it('names input.installation', () => {
+    const { path, message } = refusal(() => studyInstallationProfile({ installation: rawInstallation } as never));
+    expect(path).toBe('input.installation');
+    expect(message).toMatch(/^input\.installation: expected an installation from normaliseInstallation/);
   });
 });

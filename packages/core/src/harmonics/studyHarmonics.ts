@@ -4,6 +4,7 @@
  * power factors, judge TDD, scan the resonance for every step combination and
  * check the capacitor duty in each.
  */
+import { assertBoardModel } from '../board/modelGuards.js';
 import { assertViableBoard } from '../analysis/viableOperatingPoint.js';
 import { normaliseBoard } from '../board/normaliseBoard.js';
 import type { Board, BoardLoad } from '../board/boardModel.js';
@@ -279,6 +280,7 @@ export function harmonicsWarnings({ scan, neutral, voltageDistortion, duty, tdd,
  * @throws {NumericalError} when a solve fails
  */
 export function analyseHarmonics(board: Board, model: HarmonicModel, options: HarmonicsOptions = {}): HarmonicsReport {
+  assertBoardModel(board);
   // One set of compiled networks for every solve: the study's and each duty state's, at every order.
   const networks = new CompiledNetworkCache();
   const orders = solveHarmonicOrders(board, model, options.solve, networks);

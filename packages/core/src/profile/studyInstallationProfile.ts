@@ -9,6 +9,7 @@
  * board at the supply's terminals, or a board upstream) — and every board is
  * summarised again with it in.
  */
+import { assertInstallationModel } from '../board/modelGuards.js';
 import type { Board, Installation, BoardLoad } from '../board/boardModel.js';
 import { InputError } from '../errors.js';
 import { meteringPlace, meteringPointIssues, ORIGIN_POINT } from '../correction/meteringPoint.js';
@@ -131,6 +132,7 @@ function meterOf(bankBoard: Board, input: InstallationProfileInput, options: Ins
 }
 
 export function studyInstallationProfile(input: InstallationProfileInput, options: InstallationProfileOptions = {}): InstallationProfileStudy {
+  assertInstallationModel((input as Partial<InstallationProfileInput> | null)?.installation, 'input.installation');
   const { installation } = input;
   const n = input.columns.count;
   const zone = options.timeZone ?? 'UTC';

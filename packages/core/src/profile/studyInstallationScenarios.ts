@@ -7,6 +7,7 @@
  * interval-data columns name them: by the load's name where only one board has
  * it, else `<board>/<load>`.
  */
+import { assertInstallationModel } from '../board/modelGuards.js';
 import type { Installation } from '../board/boardModel.js';
 import type { PhaseNaming } from '../board/conventions/phaseNames.js';
 import { conventionsOf } from '../board/conventions/boardConventions.js';
@@ -52,6 +53,7 @@ const EXPECTED_LOAD = 'a load name on one board, "<board>/<load>" (or "<board>//
  *   load no board has or that several boards have, and scenarios that mix hours and weights.
  */
 export function studyInstallationScenarios(installation: Installation, profile: ProfileSpec): InstallationScenarioResult {
+  assertInstallationModel(installation);
   const scenarios = profile.scenarios ?? [];
   const groups = profile.groups ?? {};
   const issues: InputIssue[] = [];

@@ -5,6 +5,7 @@
  * factor weigh them by their hours. The hours and the reading of one board's
  * figures are shared with the installation's scenarios (studyInstallationScenarios.ts).
  */
+import { assertBoardModel } from '../board/modelGuards.js';
 import { lineRatingOf, type Board } from '../board/boardModel.js';
 import type { PhaseNaming } from '../board/conventions/phaseNames.js';
 import { conventionsOf } from '../board/conventions/boardConventions.js';
@@ -121,6 +122,7 @@ export function readBoardScenarios(board: Board, figures: IntervalFigures, scena
  *   mixes hours and weights.
  */
 export function studyScenarios(board: Board, profile: ProfileSpec): ScenarioResult {
+  assertBoardModel(board);
   const scenarios = profile.scenarios ?? [];
   const issues: InputIssue[] = [];
   const loadIndex = new Map(board.loads.map((l, i) => [l.name, i]));
