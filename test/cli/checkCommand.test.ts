@@ -90,6 +90,8 @@ describe('trivar check', () => {
       expect(warnings).toContain('! line L2 leads at PF 0.136 with your capacitors in');
       expect(warnings).toContain('! the board leads at PF 0.219 with your capacitors in: they give 40.52 kvar at the solved voltages, against 6.23 kvar drawn by its loads');
       expect(warnings).toContain('the supply transformer is loaded to 142 % of its 25 kVA rating');
+      // A split-phase service's neutral returns to the transformer's center tap, not a star point.
+      expect(r.stdout.replace(/\s+/g, ' ')).toMatch(/lifts the neutral bar [\d.]+ V off the transformer center tap, so the line-to-neutral voltages become unequal/);
       const data = JSON.parse(runTrivar(['check', garage, figures(40), '--json']).stdout) as { warnings: { code: string }[]; boardPower: { solved: { sense: string } }; operatingPoint: { collapsed: boolean } };
       expect(data.warnings.map((w) => w.code)).toEqual(['hand-line-leading', 'hand-line-leading', 'hand-board-leading', 'transformer-overload']);
       expect(data.boardPower.solved.sense).toBe('leading');

@@ -27,8 +27,9 @@ export const effectExplanation = {
     `The source and feeder impedance leave the phases at ${f(lowPct, 1)}–${f(highPct, 1)} % of nominal${unbalancedSource ? ' (with the unbalanced source voltages entered)' : ''}: ` +
     'the same power at a lower voltage takes more current, and every phase angle moves with the drop.',
   noDrop: 'The source is ideal and the feeder has no impedance: the board sits at nominal voltage, as the hand method assumes.',
-  neutralReturn: (neutralA: number, shiftV: number): string =>
-    `The neutral carries ${f(neutralA, 1)} A back to the source and its drop lifts the neutral bar ${f(shiftV, 2)} V off the source star point, so the phase voltages become unequal.`,
+  /** @param sourcePoint where the neutral returns, in the board's region words (the source star point, the transformer center tap) */
+  neutralReturn: (neutralA: number, shiftV: number, sourcePoint: string, splitPhase: boolean): string =>
+    `The neutral carries ${f(neutralA, 1)} A back to the source and its drop lifts the neutral bar ${f(shiftV, 2)} V off ${sourcePoint}, so the ${splitPhase ? 'line-to-neutral' : 'phase'} voltages become unequal.`,
   noNeutral: 'This board has no neutral conductor, so there is no neutral return to account for.',
   capacitorVoltage: (appliedKvar: number, handKvar: number, ratedNote: string): string =>
     `A capacitor's output goes with the square of its voltage (Q = ωCV²): at the solved voltages your capacitors give ${f(appliedKvar, 2)} kvar, not the ${f(handKvar, 2)} kvar counted by hand (${f((100 * (appliedKvar - handKvar)) / handKvar, 1)} %).${ratedNote}`,
