@@ -267,7 +267,7 @@ export function analyseInstallationHarmonics({ installation, models, bankBoards 
   const scans = scanned.map((b): BoardScan => {
     const evaluator = createInstallationScanEvaluator(fundamental, models, b);
     const scan = scanResonance(fundamental.boards[b]!, models[b]!, { ...checked, ...(options.scanOrders ? { grid: options.scanOrders } : {}) }, evaluator);
-    const jointScan = scanJointResonance(fundamental, models, evaluator, { grid: scan.orders, checkedOrders: scan.checkedOrders, ...(options.jointStateLimit !== undefined ? { stateLimit: options.jointStateLimit } : {}) });
+    const jointScan = scanJointResonance(fundamental, models, evaluator, { grid: scan.orders, checkedOrders: scan.checkedOrders, scan, ...(options.jointStateLimit !== undefined ? { stateLimit: options.jointStateLimit } : {}) });
     const duty = capacitorDuty(fundamental.boards[b]!.board, models[b]!, installationDutySolver(models, b, networks, options.solve), bankBoards.length > 1, jointScan ? switchedOtherBanks(jointScan, names, models) : undefined);
     warnings.push(...harmonicsWarnings({ scan, neutral: null, voltageDistortion: null, duty, tdd: null }, label).map((w) => ({ ...w, board: names[b]! })));
     if (jointScan) warnings.push(...jointResonanceWarnings(names[b]!, scan, jointScan).map((w) => ({ ...w, board: names[b]! })));

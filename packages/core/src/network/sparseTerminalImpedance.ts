@@ -41,6 +41,9 @@ export class SparseTerminalImpedance {
   private readonly rRe: Float64Array;
   private readonly rIm: Float64Array;
   private readonly rScale: Float64Array;
+  /** |x| by position, and |Y| of every unfactorised slot: each taken once where the residual check reads it several times. */
+  private readonly xAbs: Float64Array;
+  private readonly slotAbs: Float64Array;
 
   /**
    * @param size unknowns
@@ -67,6 +70,8 @@ export class SparseTerminalImpedance {
     this.rRe = new Float64Array(size);
     this.rIm = new Float64Array(size);
     this.rScale = new Float64Array(size);
+    this.xAbs = new Float64Array(size);
+    this.slotAbs = new Float64Array(slots);
   }
 
   /** The four slots a stamp between p and q adds to: pp, qq, pq, qp (-1 where an end is the reference). */
@@ -106,6 +111,7 @@ export class SparseTerminalImpedance {
     const n = p.size;
     this.originalRe.set(this.re);
     this.originalIm.set(this.im);
+    for (let s = 0; s < p.slotCount; s++) this.slotAbs[s] = Math.sqrt(this.re[s]! * this.re[s]! + this.im[s]! * this.im[s]!);
     let scale = 0;
     for (let k = 0; k < n; k++) {
       const d = p.diagonal[k]!;
@@ -158,8 +164,10 @@ export class SparseTerminalImpedance {
     const { diagonal, neighbourStart, neighbourPosition, lowerSlot, upperSlot } = p;
     const re = this.originalRe;
     const im = this.originalIm;
+    const slotAbs = this.slotAbs;
     const xRe = this.xRe;
     const xIm = this.xIm;
+    const xAbs = this.xAbs;
     // r = Y·x − e accumulated per position, and Σ|Y_kj|·|x_j| per row for its scale.
     const n = p.size;
     const rRe = this.rRe;
@@ -168,32 +176,36 @@ export class SparseTerminalImpedance {
     rRe.fill(0);
     rIm.fill(0);
     mag.fill(0);
-    const abs = (a: number, b: number) => Math.sqrt(a * a + b * b);
+    for (let k = 0; k < n; k++) xAbs[k] = Math.sqrt(xRe[k]! * xRe[k]! + xIm[k]! * xIm[k]!);
     for (let k = 0; k < n; k++) {
       const d = diagonal[k]!;
       const xr = xRe[k]!;
       const xi = xIm[k]!;
-      const xm = abs(xr, xi);
-      rRe[k] = rRe[k]! + re[d]! * xr - im[d]! * xi;
-      rIm[k] = rIm[k]! + re[d]! * xi + im[d]! * xr;
-      mag[k] = mag[k]! + abs(re[d]!, im[d]!) * xm;
+      const xm = xAbs[k]!;
+      // Row k's sums in locals: the rows below add only into later rows.
+      let rr = rRe[k]! + re[d]! * xr - im[d]! * xi;
+      let ri = rIm[k]! + re[d]! * xi + im[d]! * xr;
+      let mk = mag[k]! + slotAbs[d]! * xm;
       for (let a = neighbourStart[k]!, end = neighbourStart[k + 1]!; a < end; a++) {
         const i = neighbourPosition[a]!;
         const u = upperSlot[a]!; // Y(k, i)
         const l = lowerSlot[a]!; // Y(i, k)
-        rRe[k] = rRe[k]! + re[u]! * xRe[i]! - im[u]! * xIm[i]!;
-        rIm[k] = rIm[k]! + re[u]! * xIm[i]! + im[u]! * xRe[i]!;
-        mag[k] = mag[k]! + abs(re[u]!, im[u]!) * abs(xRe[i]!, xIm[i]!);
+        rr = rr + re[u]! * xRe[i]! - im[u]! * xIm[i]!;
+        ri = ri + re[u]! * xIm[i]! + im[u]! * xRe[i]!;
+        mk = mk + slotAbs[u]! * xAbs[i]!;
         rRe[i] = rRe[i]! + re[l]! * xr - im[l]! * xi;
         rIm[i] = rIm[i]! + re[l]! * xi + im[l]! * xr;
-        mag[i] = mag[i]! + abs(re[l]!, im[l]!) * xm;
+        mag[i] = mag[i]! + slotAbs[l]! * xm;
       }
+      rRe[k] = rr;
+      rIm[k] = ri;
+      mag[k] = mk;
     }
     rRe[source] = rRe[source]! - 1;
     let worst = 0;
     let size = 1;
     for (let k = 0; k < n; k++) {
-      worst = Math.max(worst, abs(rRe[k]!, rIm[k]!));
+      worst = Math.max(worst, Math.sqrt(rRe[k]! * rRe[k]! + rIm[k]! * rIm[k]!));
       size = Math.max(size, mag[k]!);
     }
     return Number.isFinite(worst) && worst <= RESIDUAL_LIMIT * size;
