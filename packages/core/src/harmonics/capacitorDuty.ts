@@ -9,9 +9,8 @@
  * voltage V_h (at h = 1: U/(1 − p)).
  */
 import { abs, sub, ZERO } from '../complex.js';
-import { terminalVoltage } from '../network/solveNetwork.js';
+import { terminalVoltage, type NetworkSolution } from '../network/solveNetwork.js';
 import type { BankModel } from './harmonicModel.js';
-import type { OrderSolution } from './readHarmonics.js';
 import type { CapacitorDuty, DutyCase, DutyCondition, DutyFigures, DutyLimits } from './harmonicsResult.js';
 
 export const DUTY_LIMITS: Readonly<Record<CapacitorDuty['standard'], { limits: DutyLimits; source: string }>> = {
@@ -70,13 +69,19 @@ export function dutyRatio(f: DutyFigures, limits: DutyLimits): number {
   );
 }
 
+/** What the duty reads of a solved order (h = 1 the fundamental, first): the voltages at the bank's board, whose loads hold the bank. */
+export interface DutyOrder {
+  readonly order: number;
+  readonly solution: Pick<NetworkSolution, 'board' | 'topology' | 'nodeVoltages'>;
+}
+
 /**
  * The worst branch of the bank in one state. Every part of the bank has the
  * same per-unit duty at a given branch position, so the first part on is read.
  * Returns null when no part is on.
  */
 export function dutyCase(
-  orders: readonly OrderSolution[],
+  orders: readonly DutyOrder[],
   bank: BankModel,
   steps: readonly boolean[],
   label: string,

@@ -8,7 +8,7 @@
  */
 import type { Installation } from '../board/boardModel.js';
 import type { InstallationSolution } from '../network/solveNetwork.js';
-import { solveFixedInstallation } from '../network/solveFixedInstallation.js';
+import { solveFixedInstallation, type FixedInstallationInput } from '../network/solveFixedInstallation.js';
 import type { FixedSolveOptions } from '../network/solveFixedNetwork.js';
 import type { HarmonicModel } from './harmonicModel.js';
 import { admittancesAtOrder, boardAtOrder, impedanceAtOrder, injectionsAtOrder } from './networkAtOrder.js';
@@ -33,8 +33,13 @@ export function installationAtOrder(installation: Installation, models: readonly
  * @throws {NumericalError} when the network is singular at that order.
  */
 export function solveInstallationAtOrder(fundamental: InstallationSolution, models: readonly HarmonicModel[], h: number, options: FixedSolveOptions = {}): InstallationSolution {
-  return solveFixedInstallation(installationAtOrder(fundamental.installation, models, h), {
+  return solveFixedInstallation(installationAtOrder(fundamental.installation, models, h), inputAtOrder(fundamental, models, h), options);
+}
+
+/** Every board's load branches at order h: linear ones at their admittance of that order, non-linear ones as current sources. */
+export function inputAtOrder(fundamental: InstallationSolution, models: readonly HarmonicModel[], h: number): FixedInstallationInput {
+  return {
     admittances: fundamental.boards.map((board, b) => admittancesAtOrder(board, models[b]!, h)),
     branchSources: fundamental.boards.map((board, b) => injectionsAtOrder(board, models[b]!, h)),
-  }, options);
+  };
 }

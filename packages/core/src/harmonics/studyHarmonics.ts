@@ -15,7 +15,7 @@ import { addInstalledBank, ordersPresent, resolveHarmonicModel, stateKey, type B
 import { solveAtOrder } from './networkAtOrder.js';
 import { readLines, readLineToLine, readNeutral, type OrderSolution } from './readHarmonics.js';
 import { combinationLabel, scanResonance, stepCombinations } from './scanResonance.js';
-import { CONTINUOUS_VOLTAGE_PU, DUTY_LIMITS, dutyCase, dutyRatio } from './capacitorDuty.js';
+import { CONTINUOUS_VOLTAGE_PU, DUTY_LIMITS, dutyCase, dutyRatio, type DutyOrder } from './capacitorDuty.js';
 import { conditionWords, dutyConditions, withCapacitanceFactor, withLoadsOff } from './dutyConditions.js';
 import { IEEE_519_SOURCE, ieee519OrderLimit, ieee519Row } from './ieee519.js';
 import { checkVoltageDistortion } from './voltageDistortion.js';
@@ -117,7 +117,7 @@ export type SwitchedOtherBanks = (steps: readonly boolean[]) => readonly { reado
  * every load off when `loadsOff`: the whole installation where the board has a place in one, with
  * every other board's bank as `others` sets it.
  */
-export type DutySolver = (board: Board, model: HarmonicModel, loadsOff: boolean, others: OtherBanksSetting) => OrderSolution[];
+export type DutySolver = (board: Board, model: HarmonicModel, loadsOff: boolean, others: OtherBanksSetting) => DutyOrder[];
 
 /** The duty solver of a single board: every state through `networks`, its states changing load powers only. */
 const boardDutySolver =

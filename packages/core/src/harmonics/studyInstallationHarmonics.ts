@@ -23,6 +23,7 @@ import { addInstalledBank, ordersPresent, resolveHarmonicModel, type BankModel, 
 import type { HarmonicLoadSpec, InstallationHarmonicsSectionSpec } from './harmonicsSpec.js';
 import type { BoardHarmonics, BoardScan, HarmonicsWarning, InstallationHarmonicsReport, InstallationHarmonicsWarning, JointScan, OtherBankLevel, ResonanceScan } from './harmonicsResult.js';
 import { solveInstallationAtOrder } from './installationAtOrder.js';
+import { installationDutyOrders } from './installationDutyOrders.js';
 import { readLines, readLineToLine, type OrderSolution } from './readHarmonics.js';
 import { combinationLabel, scanResonance } from './scanResonance.js';
 import { createInstallationScanEvaluator } from './scanEvaluator.js';
@@ -77,12 +78,12 @@ const bankPartsOf = (models: readonly HarmonicModel[]) => models.map((m) => (m.b
  * nothing, they are not removed), so at each order the circuits repeat and `networks` compiles each once.
  */
 function installationDutySolver(models: readonly HarmonicModel[], b: number, networks: CompiledNetworkCache, solve?: SolveOptions): DutySolver {
+  const solveStates = installationDutyOrders(networks, solve);
   return (board, model, loadsOff, others) => {
     const { installation } = installationOf(board);
     const at = models.map((m, i) => (i === b ? model : m));
     const switched = others === 'on' ? installation : others === 'off' ? withOtherBanksOff(installation, bankPartsOf(models), b) : withPartsOff(installation, others.partsOff);
-    const { fundamental, solved } = solveOrders(loadsOff ? withInstallationLoadsOff(switched) : switched, at, networks, solve);
-    return boardOrders(b, fundamental, solved);
+    return solveStates(loadsOff ? withInstallationLoadsOff(switched) : switched, at, ordersOf(at), b);
   };
 }
 

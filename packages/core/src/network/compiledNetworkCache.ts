@@ -82,6 +82,14 @@ export function sameLoadFlowNetwork(a: Circuit, b: Circuit): boolean {
   return true;
 }
 
+/** A network as a compile leaves it for `solveLinear`: no branch admittances, no injections. */
+function clearForLinearSolve(network: CompiledNetwork): void {
+  network.admittanceRe.fill(0);
+  network.admittanceIm.fill(0);
+  network.injectionRe.fill(0);
+  network.injectionIm.fill(0);
+}
+
 /** Compiled networks found again by their circuit (see the module comment). */
 export class CompiledNetworkCache {
   /** Networks by their live nodes; each list holds circuits that differ otherwise (e.g. by harmonic order). */
@@ -97,12 +105,18 @@ export class CompiledNetworkCache {
    * or a new compile.
    */
   compileForLinearSolve(installation: Installation): CompiledInstallation {
-    return this.laidOut(installation, sameLinearNetwork, (found) => {
-      found.admittanceRe.fill(0);
-      found.admittanceIm.fill(0);
-      found.injectionRe.fill(0);
-      found.injectionIm.fill(0);
-    });
+    return this.laidOut(installation, sameLinearNetwork, clearForLinearSolve);
+  }
+
+  /**
+   * A network `compileForLinearSolve` gave, handed back for another linear solve of a circuit the
+   * caller knows to be equal to the one it was compiled for (so nothing is laid out or compared):
+   * admittances and injections cleared.
+   */
+  againForLinearSolve(compiled: CompiledInstallation): CompiledInstallation {
+    clearForLinearSolve(compiled.network);
+    this.reused++;
+    return compiled;
   }
 
   /**

@@ -10,7 +10,7 @@ import { isFiniteComplex, type ComplexValue } from '../complex.js';
 import { NumericalError } from '../errors.js';
 import type { Installation } from '../board/boardModel.js';
 import { injectBranchSource, type FixedSolveOptions } from './solveFixedNetwork.js';
-import { compileInstallation, readInstallationSolution, type InstallationSolution } from './solveNetwork.js';
+import { compileInstallation, readInstallationSolution, type CompiledInstallation, type InstallationSolution } from './solveNetwork.js';
 
 /** Per board (0 = main board, i + 1 = `subBoards[i]`), per load, per branch. */
 export type PerBoardBranches<T> = readonly (readonly (readonly T[])[])[];
@@ -31,9 +31,28 @@ export interface FixedInstallationInput {
 export function solveFixedInstallation(installation: Installation, input: FixedInstallationInput, options: FixedSolveOptions = {}): InstallationSolution {
   const compiled = options.networks ? options.networks.compileForLinearSolve(installation) : compileInstallation(installation);
   const { layout, network: net } = compiled;
+  const { nodeVoltages, branchSources } = solveFixedCompiled(compiled, input);
+  const admittances = Array.from({ length: net.branchCount }, (_, k): ComplexValue => ({ re: net.admittanceRe[k]!, im: net.admittanceIm[k]! }));
+  return readInstallationSolution(installation, layout, {
+    nodeVoltages,
+    admittances,
+    sourceCurrents: net.sourceCurrents(),
+    iterations: 1,
+    lastChange: 0,
+    lowVoltageThreshold: 0,
+    branchSources,
+  });
+}
+
+/**
+ * The solve alone, on a compiled installation whose branch admittances and injections are
+ * clear (a compile, or a cache's hand-back): every node voltage (null for a dead node) and the
+ * source beside each circuit branch — for a caller that reads a few voltages, not every board.
+ * @throws {NumericalError} when the network is singular or a voltage is not finite.
+ */
+export function solveFixedCompiled({ layout, network: net }: CompiledInstallation, input: FixedInstallationInput): { nodeVoltages: (ComplexValue | null)[]; branchSources: (ComplexValue | null)[] } {
   const sources: (ComplexValue | null)[] = new Array(net.branchCount).fill(null);
-  const count = installation.subBoards.length + 1;
-  for (let b = 0; b < count; b++) {
+  for (let b = 0; b < layout.branchOffset.length; b++) {
     let k = layout.branchOffset[b]!;
     input.admittances[b]!.forEach((load, l) =>
       load.forEach((y, i) => {
@@ -50,14 +69,5 @@ export function solveFixedInstallation(installation: Installation, input: FixedI
   const nodeVoltages = Array.from({ length: net.nodeCount }, (_, v): ComplexValue | null => (net.live[v] ? { re: net.voltageRe[v]!, im: net.voltageIm[v]! } : null));
   for (const v of nodeVoltages)
     if (v && !isFiniteComplex(v)) throw new NumericalError('non-finite', 'the solve produced a non-finite voltage; check for extreme impedance values');
-  const admittances = Array.from({ length: net.branchCount }, (_, k): ComplexValue => ({ re: net.admittanceRe[k]!, im: net.admittanceIm[k]! }));
-  return readInstallationSolution(installation, layout, {
-    nodeVoltages,
-    admittances,
-    sourceCurrents: net.sourceCurrents(),
-    iterations: 1,
-    lastChange: 0,
-    lowVoltageThreshold: 0,
-    branchSources: sources,
-  });
+  return { nodeVoltages, branchSources: sources };
 }
