@@ -79,11 +79,13 @@ const bankPartsOf = (models: readonly HarmonicModel[]) => models.map((m) => (m.b
  */
 function installationDutySolver(models: readonly HarmonicModel[], b: number, networks: CompiledNetworkCache, solve?: SolveOptions): DutySolver {
   const solveStates = installationDutyOrders(networks, solve);
+  // A state's model differs in its bank's capacitance only, not in what any load injects or the supply carries.
+  const orders = ordersOf(models);
   return (board, model, loadsOff, others) => {
     const { installation } = installationOf(board);
     const at = models.map((m, i) => (i === b ? model : m));
     const switched = others === 'on' ? installation : others === 'off' ? withOtherBanksOff(installation, bankPartsOf(models), b) : withPartsOff(installation, others.partsOff);
-    return solveStates(loadsOff ? withInstallationLoadsOff(switched) : switched, at, ordersOf(at), b);
+    return solveStates(loadsOff ? withInstallationLoadsOff(switched) : switched, at, orders, b);
   };
 }
 

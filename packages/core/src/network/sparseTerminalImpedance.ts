@@ -15,7 +15,7 @@
  * residual is not at round-off level, returns false and the caller inverts the dense matrix
  * with partial pivoting as before.
  */
-import { analysePattern, factorInPlace, substituteInOrder, type SparsePattern } from '../_internal/sparseComplexLu.js';
+import { analysePattern, factorInPlace, substituteColumnsInOrder, type SparsePattern } from '../_internal/sparseComplexLu.js';
 
 /** A pivot at or below this share of the largest diagonal entry hands the evaluation to the dense pivoted inverse. */
 const RELATIVE_PIVOT = 1e-8;
@@ -35,13 +35,16 @@ export class SparseTerminalImpedance {
   private readonly terminals: Int32Array;
   private readonly columnRe: Float64Array;
   private readonly columnIm: Float64Array;
+  /** Every terminal's solution, interleaved: position k of terminal c's at k·t + c (substituteColumnsInOrder). */
   private readonly xRe: Float64Array;
   private readonly xIm: Float64Array;
-  /** Residual check scratch, by position. */
+  private readonly sumRe: Float64Array;
+  private readonly sumIm: Float64Array;
+  /** Residual check scratch, interleaved like x. */
   private readonly rRe: Float64Array;
   private readonly rIm: Float64Array;
   private readonly rScale: Float64Array;
-  /** |x| by position, and |Y| of every unfactorised slot: each taken once where the residual check reads it several times. */
+  /** |x| interleaved like x, and |Y| of every unfactorised slot, for the residual's scale: each taken once where it is read several times. */
   private readonly xAbs: Float64Array;
   private readonly slotAbs: Float64Array;
 
@@ -65,12 +68,14 @@ export class SparseTerminalImpedance {
     const t = this.terminals.length;
     this.columnRe = new Float64Array(t * t);
     this.columnIm = new Float64Array(t * t);
-    this.xRe = new Float64Array(size);
-    this.xIm = new Float64Array(size);
-    this.rRe = new Float64Array(size);
-    this.rIm = new Float64Array(size);
-    this.rScale = new Float64Array(size);
-    this.xAbs = new Float64Array(size);
+    this.xRe = new Float64Array(size * t);
+    this.xIm = new Float64Array(size * t);
+    this.sumRe = new Float64Array(t);
+    this.sumIm = new Float64Array(t);
+    this.rRe = new Float64Array(size * t);
+    this.rIm = new Float64Array(size * t);
+    this.rScale = new Float64Array(size * t);
+    this.xAbs = new Float64Array(size * t);
     this.slotAbs = new Float64Array(slots);
   }
 
@@ -111,7 +116,6 @@ export class SparseTerminalImpedance {
     const n = p.size;
     this.originalRe.set(this.re);
     this.originalIm.set(this.im);
-    for (let s = 0; s < p.slotCount; s++) this.slotAbs[s] = Math.sqrt(this.re[s]! * this.re[s]! + this.im[s]! * this.im[s]!);
     let scale = 0;
     for (let k = 0; k < n; k++) {
       const d = p.diagonal[k]!;
@@ -119,21 +123,19 @@ export class SparseTerminalImpedance {
     }
     if (!(scale > 0) || factorInPlace(p, this.re, this.im, RELATIVE_PIVOT, scale) >= 0) return false;
     const t = this.terminals.length;
-    for (let c = 0; c < t; c++) {
-      const xRe = this.xRe;
-      const xIm = this.xIm;
-      xRe.fill(0);
-      xIm.fill(0);
-      const source = p.position[this.terminals[c]!]!;
-      xRe[source] = 1;
-      substituteInOrder(p, this.re, this.im, xRe, xIm, 0);
-      if (!this.residualSmall(source)) return false;
+    const xRe = this.xRe;
+    const xIm = this.xIm;
+    xRe.fill(0);
+    xIm.fill(0);
+    for (let c = 0; c < t; c++) xRe[p.position[this.terminals[c]!]! * t + c] = 1;
+    substituteColumnsInOrder(p, this.re, this.im, xRe, xIm, t, this.sumRe, this.sumIm);
+    if (!this.residualsSmall()) return false;
+    for (let c = 0; c < t; c++)
       for (let r = 0; r < t; r++) {
-        const at = p.position[this.terminals[r]!]!;
+        const at = p.position[this.terminals[r]!]! * t + c;
         this.columnRe[r * t + c] = xRe[at]!;
         this.columnIm[r * t + c] = xIm[at]!;
       }
-    }
     for (let k = 0; k < ends.length; k++) {
       const [a, b] = ends[k]!;
       const i = a >= 0 ? this.terminals.indexOf(a) : -1;
@@ -158,58 +160,115 @@ export class SparseTerminalImpedance {
     return true;
   }
 
-  /** Whether Y·x (the unfactorised values, x by position) is the unit vector at `source` to round-off. */
-  private residualSmall(source: number): boolean {
+  /**
+   * Whether Y·x (the unfactorised values) is, for every terminal c, the unit vector at its position to
+   * round-off: the largest |r| of r = Y·x − e within RESIDUAL_LIMIT × max(1, largest row of |Y|·|x|).
+   * That scale is never below 1, so a residual within RESIDUAL_LIMIT passes whatever the scale, which
+   * is summed only when one is above (as good as never: round-off is some 1e-15 of it) or when a
+   * value is so large that |Y|·|x| could overflow, where the check runs in full as written.
+   */
+  private residualsSmall(): boolean {
     const p = this.pattern;
     const { diagonal, neighbourStart, neighbourPosition, lowerSlot, upperSlot } = p;
+    const t = this.terminals.length;
     const re = this.originalRe;
     const im = this.originalIm;
-    const slotAbs = this.slotAbs;
     const xRe = this.xRe;
     const xIm = this.xIm;
-    const xAbs = this.xAbs;
-    // r = Y·x − e accumulated per position, and Σ|Y_kj|·|x_j| per row for its scale.
+    // r = Y·x − e accumulated per position, each terminal's sums in the order of a check of its vector alone.
     const n = p.size;
     const rRe = this.rRe;
     const rIm = this.rIm;
-    const mag = this.rScale;
     rRe.fill(0);
     rIm.fill(0);
-    mag.fill(0);
-    for (let k = 0; k < n; k++) xAbs[k] = Math.sqrt(xRe[k]! * xRe[k]! + xIm[k]! * xIm[k]!);
     for (let k = 0; k < n; k++) {
+      const row = k * t;
       const d = diagonal[k]!;
-      const xr = xRe[k]!;
-      const xi = xIm[k]!;
-      const xm = xAbs[k]!;
-      // Row k's sums in locals: the rows below add only into later rows.
-      let rr = rRe[k]! + re[d]! * xr - im[d]! * xi;
-      let ri = rIm[k]! + re[d]! * xi + im[d]! * xr;
-      let mk = mag[k]! + slotAbs[d]! * xm;
+      const dr = re[d]!;
+      const di = im[d]!;
+      for (let c = 0; c < t; c++) {
+        const xr = xRe[row + c]!;
+        const xi = xIm[row + c]!;
+        rRe[row + c] = rRe[row + c]! + dr * xr - di * xi;
+        rIm[row + c] = rIm[row + c]! + dr * xi + di * xr;
+      }
       for (let a = neighbourStart[k]!, end = neighbourStart[k + 1]!; a < end; a++) {
-        const i = neighbourPosition[a]!;
+        const i = neighbourPosition[a]! * t;
         const u = upperSlot[a]!; // Y(k, i)
         const l = lowerSlot[a]!; // Y(i, k)
-        rr = rr + re[u]! * xRe[i]! - im[u]! * xIm[i]!;
-        ri = ri + re[u]! * xIm[i]! + im[u]! * xRe[i]!;
-        mk = mk + slotAbs[u]! * xAbs[i]!;
-        rRe[i] = rRe[i]! + re[l]! * xr - im[l]! * xi;
-        rIm[i] = rIm[i]! + re[l]! * xi + im[l]! * xr;
-        mag[i] = mag[i]! + slotAbs[l]! * xm;
+        const ur = re[u]!;
+        const ui = im[u]!;
+        const lr = re[l]!;
+        const li = im[l]!;
+        for (let c = 0; c < t; c++) {
+          const xr = xRe[row + c]!;
+          const xi = xIm[row + c]!;
+          rRe[row + c] = rRe[row + c]! + ur * xRe[i + c]! - ui * xIm[i + c]!;
+          rIm[row + c] = rIm[row + c]! + ur * xIm[i + c]! + ui * xRe[i + c]!;
+          rRe[i + c] = rRe[i + c]! + lr * xr - li * xi;
+          rIm[i + c] = rIm[i + c]! + lr * xi + li * xr;
+        }
       }
-      rRe[k] = rr;
-      rIm[k] = ri;
-      mag[k] = mk;
     }
-    rRe[source] = rRe[source]! - 1;
-    let worst = 0;
-    let size = 1;
-    for (let k = 0; k < n; k++) {
-      worst = Math.max(worst, Math.sqrt(rRe[k]! * rRe[k]! + rIm[k]! * rIm[k]!));
-      size = Math.max(size, mag[k]!);
+    // Below this no |Y|, |x| or product of the two overflows, so the scale is finite and at least 1.
+    const modest = largestPart(re, im) < 1e150 && largestPart(xRe, xIm) < 1e150;
+    let scaled = false;
+    for (let c = 0; c < t; c++) {
+      const source = p.position[this.terminals[c]!]! * t + c;
+      rRe[source] = rRe[source]! - 1;
+      let worst = 0;
+      for (let k = 0; k < n; k++) {
+        const e = k * t + c;
+        worst = Math.max(worst, Math.sqrt(rRe[e]! * rRe[e]! + rIm[e]! * rIm[e]!));
+      }
+      if (modest && worst <= RESIDUAL_LIMIT) continue;
+      if (!scaled) this.sumScales();
+      scaled = true;
+      let size = 1;
+      for (let k = 0; k < n; k++) size = Math.max(size, this.rScale[k * t + c]!);
+      if (!(Number.isFinite(worst) && worst <= RESIDUAL_LIMIT * size)) return false;
     }
-    return Number.isFinite(worst) && worst <= RESIDUAL_LIMIT * size;
+    return true;
   }
+
+  /** Σ|Y_kj|·|x_j| per row and terminal into rScale, for the residual check's scale. */
+  private sumScales(): void {
+    const p = this.pattern;
+    const { diagonal, neighbourStart, neighbourPosition, lowerSlot, upperSlot } = p;
+    const t = this.terminals.length;
+    const n = p.size;
+    const re = this.originalRe;
+    const im = this.originalIm;
+    const xRe = this.xRe;
+    const xIm = this.xIm;
+    const slotAbs = this.slotAbs;
+    const xAbs = this.xAbs;
+    const mag = this.rScale;
+    for (let s = 0; s < p.slotCount; s++) slotAbs[s] = Math.sqrt(re[s]! * re[s]! + im[s]! * im[s]!);
+    for (let e = 0; e < n * t; e++) xAbs[e] = Math.sqrt(xRe[e]! * xRe[e]! + xIm[e]! * xIm[e]!);
+    mag.fill(0);
+    for (let k = 0; k < n; k++) {
+      const row = k * t;
+      const dm = slotAbs[diagonal[k]!]!;
+      for (let c = 0; c < t; c++) mag[row + c] = mag[row + c]! + dm * xAbs[row + c]!;
+      for (let a = neighbourStart[k]!, end = neighbourStart[k + 1]!; a < end; a++) {
+        const i = neighbourPosition[a]! * t;
+        const um = slotAbs[upperSlot[a]!]!;
+        const lm = slotAbs[lowerSlot[a]!]!;
+        for (let c = 0; c < t; c++) {
+          mag[row + c] = mag[row + c]! + um * xAbs[i + c]!;
+          mag[i + c] = mag[i + c]! + lm * xAbs[row + c]!;
+        }
+      }
+    }
+  }
+}
+
+/** The largest |re| or |im| of a vector (NaN where one is NaN). */
+function largestPart(re: Float64Array, im: Float64Array): number {
+  let largest = 0;
+  for (let k = 0; k < re.length; k++) largest = Math.max(largest, Math.abs(re[k]!), Math.abs(im[k]!));
+  return largest;
 }
 
 function stampSlots(re: Float64Array, im: Float64Array, slots: Int32Array, at: number, g: number, b: number): void {
