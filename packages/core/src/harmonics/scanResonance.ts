@@ -55,10 +55,13 @@ export function createScanEvaluator(fundamental: NetworkSolution, model: Harmoni
  */
 export function roundForPlot(curve: Float64Array | readonly number[]): number[] {
   let largest = 0;
-  for (const z of curve) if (z > largest) largest = z;
+  for (let i = 0; i < curve.length; i++) if (curve[i]! > largest) largest = curve[i]!;
   if (!(largest > 0)) return Array.from(curve);
   const step = 10 ** (Math.floor(Math.log10(largest)) - 6);
-  return Array.from(curve, (z) => Math.round(z / step) * step);
+  // Indexed, not Array.from's iterator: a correction with harmonic data rounds some 10^5 points per variant.
+  const rounded: number[] = [];
+  for (let i = 0; i < curve.length; i++) rounded.push(Math.round(curve[i]! / step) * step);
+  return rounded;
 }
 
 /** The scan grid: 1, 1 + step, …, up to maxOrder. */

@@ -47,6 +47,9 @@ export class SparseTerminalImpedance {
   /** |x| interleaved like x, and |Y| of every unfactorised slot, for the residual's scale: each taken once where it is read several times. */
   private readonly xAbs: Float64Array;
   private readonly slotAbs: Float64Array;
+  /** The pairs last read (a scan reads the same ones every time) and their ends' terminal numbers, two per pair (-1: the reference). */
+  private endsRead: readonly (readonly [number, number])[] | null = null;
+  private endTerminal = new Int32Array(0);
 
   /**
    * @param size unknowns
@@ -136,10 +139,14 @@ export class SparseTerminalImpedance {
         this.columnRe[r * t + c] = xRe[at]!;
         this.columnIm[r * t + c] = xIm[at]!;
       }
+    if (this.endsRead !== ends) {
+      this.endsRead = ends;
+      this.endTerminal = Int32Array.from(ends.flatMap(([a, b]) => [a >= 0 ? this.terminals.indexOf(a) : -1, b >= 0 ? this.terminals.indexOf(b) : -1]));
+    }
+    const endTerminal = this.endTerminal;
     for (let k = 0; k < ends.length; k++) {
-      const [a, b] = ends[k]!;
-      const i = a >= 0 ? this.terminals.indexOf(a) : -1;
-      const j = b >= 0 ? this.terminals.indexOf(b) : -1;
+      const i = endTerminal[2 * k]!;
+      const j = endTerminal[2 * k + 1]!;
       let zr = 0;
       let zi = 0;
       if (i >= 0) {
