@@ -1,51 +1,72 @@
 /**
  * The solves of the capacitor duty on an installation: one per bank state and
- * condition, at the fundamental and at every order. The fundamental is solved
- * and read in full, since every order starts from its branch admittances and
- * currents; at an order only the node voltages are kept, all the duty reads
- * (the bank's branch voltages, capacitorDuty.ts), where reading every board
- * cost as much as the solve.
+ * condition, at the fundamental and at every order. The fundamental's load
+ * branches are read (every order starts from their admittances and currents)
+ * and, like every order, the node voltages, which is all the duty reads (the
+ * bank's branch voltages, capacitorDuty.ts): reading each board's lines,
+ * neutral and supply cost as much as the solves.
  *
  * The states change load powers only (parts switched off draw nothing, they
- * are not removed), so two states whose fundamentals are solved by one compiled
- * network (equal circuits but for the powers, the same live nodes) have one
- * circuit at each order too: its network is kept per fundamental network and
- * order, and not laid out and compared again for every state.
+ * are not removed), so they lay out as one circuit whose live nodes follow which
+ * branches draw nothing: the fundamental's network is kept per such pattern and
+ * each order's per fundamental network and order, none laid out and compared
+ * again for every state.
  */
+import type { ComplexValue } from '../complex.js';
 import type { Installation } from '../board/boardModel.js';
 import type { CompiledNetwork } from '../network/compiledNetwork.js';
 import type { CompiledNetworkCache } from '../network/compiledNetworkCache.js';
-import { solveFixedCompiled } from '../network/solveFixedInstallation.js';
-import { solveCompiledInstallation, type CompiledInstallation, type SolveOptions } from '../network/solveNetwork.js';
+import { boardOfInstallation } from '../network/installationModel.js';
+import { solveLinearVoltages } from '../network/solveFixedInstallation.js';
+import { readBranchStates, type CompiledInstallation, type SolveOptions } from '../network/solveNetwork.js';
+import { resolveSolveOptions } from '../network/solveOptions.js';
 import type { DutyOrder } from './capacitorDuty.js';
 import type { HarmonicModel } from './harmonicModel.js';
-import { inputAtOrder, installationAtOrder } from './installationAtOrder.js';
+import { installationAtOrder, writeAtOrder } from './installationAtOrder.js';
 
 /**
- * Solves an installation state at the fundamental and at each of `orders`, read at board `b`.
- * Every installation it is given must differ from the others in load powers only (one
- * installation's duty states), its networks coming from `networks`.
+ * Solves an installation state at the fundamental and at each of `orders`, read at board `b`. Every
+ * installation one solver is given must be the first but for its load powers (one installation's
+ * duty states), its networks coming from `networks`.
  */
 export type DutyOrderSolver = (installation: Installation, models: readonly HarmonicModel[], orders: readonly number[], b: number) => DutyOrder[];
 
+/** Every load branch's power, board by board as the circuit lists them. */
+function branchPowers(installation: Installation): ComplexValue[] {
+  const powers: ComplexValue[] = [];
+  for (const board of [installation.main, ...installation.subBoards]) for (const load of board.loads) for (const branch of load.branches) powers.push(branch.sNominal);
+  return powers;
+}
+
 export function installationDutyOrders(networks: CompiledNetworkCache, solve?: SolveOptions): DutyOrderSolver {
+  const fundamentals = new Map<string, CompiledInstallation>();
   // Weak: a fundamental network the cache did not keep goes, and its order networks with it.
   const atOrders = new WeakMap<CompiledNetwork, Map<number, CompiledInstallation>>();
   return (installation, models, orders, b) => {
-    const compiled = networks.compileForLoadFlow(installation);
-    const fundamental = solveCompiledInstallation(compiled, solve);
-    let kept = atOrders.get(compiled.network);
-    if (!kept) atOrders.set(compiled.network, (kept = new Map()));
-    const board = fundamental.boards[b]!.board;
+    const options = resolveSolveOptions(solve);
+    const powers = branchPowers(installation);
+    const drawing = powers.map((s) => (s.re !== 0 || s.im !== 0 ? '1' : '0')).join('');
+    const found = fundamentals.get(drawing);
+    const compiled = found ? networks.againForLoadFlow(found, installation, powers) : networks.compileForLoadFlow(installation);
+    if (!found) fundamentals.set(drawing, compiled);
+    const { layout, network: net } = compiled;
+    // As solveCompiledInstallation solves and reads it.
+    net.solve(options);
+    const nodeVoltages = Array.from({ length: net.nodeCount }, (_, v): ComplexValue | null => (net.live[v] ? { re: net.voltageRe[v]!, im: net.voltageIm[v]! } : null));
+    const admittances = Array.from({ length: net.branchCount }, (_, k): ComplexValue => ({ re: net.admittanceRe[k]!, im: net.admittanceIm[k]! }));
+    const branches = readBranchStates(installation, layout, { nodeVoltages, admittances });
+    const board = boardOfInstallation(installation, b);
+    let kept = atOrders.get(net);
+    if (!kept) atOrders.set(net, (kept = new Map()));
     return [
-      { order: 1, solution: fundamental.boards[b]! },
+      { order: 1, solution: { board, topology: layout.topologies[b]!, nodeVoltages } },
       ...orders.map((h): DutyOrder => {
-        const found = kept.get(h);
-        const atOrder = found ? networks.againForLinearSolve(found) : networks.compileForLinearSolve(installationAtOrder(installation, models, h));
-        if (!found) kept.set(h, atOrder);
-        const { nodeVoltages } = solveFixedCompiled(atOrder, inputAtOrder(fundamental, models, h));
+        const known = kept.get(h);
+        const atOrder = known ? networks.againForLinearSolve(known) : networks.compileForLinearSolve(installationAtOrder(installation, models, h));
+        if (!known) kept.set(h, atOrder);
+        writeAtOrder(atOrder, branches, models, h);
         // The board's loads and terminals are those at every order; its supply at h is not read.
-        return { order: h, solution: { board, topology: atOrder.layout.topologies[b]!, nodeVoltages } };
+        return { order: h, solution: { board, topology: atOrder.layout.topologies[b]!, nodeVoltages: solveLinearVoltages(atOrder.network) } };
       }),
     ];
   };

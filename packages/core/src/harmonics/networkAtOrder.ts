@@ -72,14 +72,19 @@ function emfAtOrder(board: Board, model: HarmonicModel, h: number): ComplexValue
 /** Per load, per branch: the harmonic current a non-linear load draws at order h (from → to), or null. */
 export function injectionsAtOrder(fundamental: NetworkSolution, model: HarmonicModel, h: number): (ComplexValue | null)[][] {
   return fundamental.board.loads.map((load, l) => {
-    const behaviour = model.loads[l]!;
-    const content = behaviour.kind === 'non-linear' ? behaviour.spectrum.find((o) => o.order === h) : undefined;
-    return load.branches.map((_, k) => {
-      if (!content) return null;
-      const i1 = fundamental.branches[l]![k]!.current;
-      return polar(abs(i1) * content.fraction, h * arg(i1) + content.angleRad);
-    });
+    const content = contentAtOrder(model.loads[l]!, h);
+    return load.branches.map((_, k) => (content ? injectionAtOrder(fundamental.branches[l]![k]!.current, content, h) : null));
   });
+}
+
+/** What a load injects at order h: its spectrum's entry there; none for a linear load or an order its spectrum lacks. */
+export function contentAtOrder(behaviour: LoadBehaviour, h: number): { readonly fraction: number; readonly angleRad: number } | undefined {
+  return behaviour.kind === 'non-linear' ? behaviour.spectrum.find((o) => o.order === h) : undefined;
+}
+
+/** The current of order h a non-linear branch draws (from → to), from its fundamental current i1. */
+export function injectionAtOrder(i1: ComplexValue, content: { readonly fraction: number; readonly angleRad: number }, h: number): ComplexValue {
+  return polar(abs(i1) * content.fraction, h * arg(i1) + content.angleRad);
 }
 
 /**

@@ -20,6 +20,7 @@
  * powers written in, and every solve starts from nominal, whatever the network solved
  * before.
  */
+import type { ComplexValue } from '../complex.js';
 import type { Installation } from '../board/boardModel.js';
 import type { Circuit } from './circuit.js';
 import { compileCircuit, liveNodes, type CompiledNetwork } from './compiledNetwork.js';
@@ -133,6 +134,24 @@ export class CompiledNetworkCache {
         found.powerIm[k] = b.sNominal.im;
       });
     });
+  }
+
+  /**
+   * A network `compileForLoadFlow` gave, handed back for the load flow of `installation`, which the
+   * caller knows to lay out as the one it was compiled for but for its branch powers (`powers`, in
+   * circuit order) and to have the same live nodes: injections cleared, the powers written in. The
+   * layout is the earlier installation's (the same nodes, elements, sources and branch ends).
+   */
+  againForLoadFlow(compiled: CompiledInstallation, installation: Installation, powers: readonly ComplexValue[]): CompiledInstallation {
+    const network = compiled.network;
+    network.injectionRe.fill(0);
+    network.injectionIm.fill(0);
+    powers.forEach((s, k) => {
+      network.powerRe[k] = s.re;
+      network.powerIm[k] = s.im;
+    });
+    this.reused++;
+    return { installation, layout: compiled.layout, network };
   }
 
   /** The installation's circuit with a kept network `same` accepts, made ready by `reset`, or a new compile. */
