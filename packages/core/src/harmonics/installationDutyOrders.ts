@@ -8,14 +8,15 @@
  *
  * The states change load powers only (parts switched off draw nothing, they
  * are not removed), so they lay out as one circuit whose live nodes follow which
- * branches draw nothing: the fundamental's network is kept per such pattern and
- * each order's per fundamental network and order, none laid out and compared
- * again for every state.
+ * branches draw nothing: the fundamental's network is kept per set of live
+ * nodes and each order's per fundamental network and order, as the compiled
+ * network cache would find them, without laying out and comparing every state.
  */
 import type { ComplexValue } from '../complex.js';
 import type { Installation } from '../board/boardModel.js';
 import type { CompiledNetwork } from '../network/compiledNetwork.js';
-import type { CompiledNetworkCache } from '../network/compiledNetworkCache.js';
+import { liveKey, type CompiledNetworkCache } from '../network/compiledNetworkCache.js';
+import type { InstallationCircuit } from '../network/installationCircuit.js';
 import { boardOfInstallation } from '../network/installationModel.js';
 import { solveLinearVoltages } from '../network/solveFixedInstallation.js';
 import { readBranchStates, type CompiledInstallation, type SolveOptions } from '../network/solveNetwork.js';
@@ -39,16 +40,21 @@ function branchPowers(installation: Installation): ComplexValue[] {
 }
 
 export function installationDutyOrders(networks: CompiledNetworkCache, solve?: SolveOptions): DutyOrderSolver {
+  /** The first state's layout, every state's but for the powers; the fundamental's network per set of live nodes. */
+  let shape: InstallationCircuit | undefined;
   const fundamentals = new Map<string, CompiledInstallation>();
   // Weak: a fundamental network the cache did not keep goes, and its order networks with it.
   const atOrders = new WeakMap<CompiledNetwork, Map<number, CompiledInstallation>>();
   return (installation, models, orders, b) => {
     const options = resolveSolveOptions(solve);
     const powers = branchPowers(installation);
-    const drawing = powers.map((s) => (s.re !== 0 || s.im !== 0 ? '1' : '0')).join('');
-    const found = fundamentals.get(drawing);
+    const live = shape && liveKey(shape.circuit, powers);
+    const found = live === undefined ? undefined : fundamentals.get(live);
     const compiled = found ? networks.againForLoadFlow(found, installation, powers) : networks.compileForLoadFlow(installation);
-    if (!found) fundamentals.set(drawing, compiled);
+    if (!found) {
+      shape ??= compiled.layout;
+      fundamentals.set(live ?? liveKey(shape.circuit, powers), compiled);
+    }
     const { layout, network: net } = compiled;
     // As solveCompiledInstallation solves and reads it.
     net.solve(options);

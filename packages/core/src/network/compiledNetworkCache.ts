@@ -34,10 +34,13 @@ import type { CompiledInstallation } from './solveNetwork.js';
  */
 const MAX_KEPT = 256;
 
-/** Which nodes are live, one character each: the part of a compile that follows the branch powers. */
-function liveKey(circuit: Circuit): string {
+/**
+ * Which nodes are live, one character each: the part of a compile that follows the branch powers.
+ * @param powers the branches' powers in place of the circuit's own
+ */
+export function liveKey(circuit: Circuit, powers?: readonly ComplexValue[]): string {
   let key = '';
-  for (const live of liveNodes(circuit)) key += live ? '1' : '0';
+  for (const live of liveNodes(circuit, powers)) key += live ? '1' : '0';
   return key;
 }
 
