@@ -314,6 +314,44 @@ export function substituteColumnsInOrder(p: SparsePattern, re: Float64Array, im:
 }
 
 /**
+ * y ← y + A·x for `t` vectors interleaved as in `substituteColumnsInOrder`, A the values by slot
+ * before factorising. Row k's sum takes the entries of earlier rows (added as each is reached),
+ * then A(k, k), then the later neighbours in order; each vector's sums are those of it alone.
+ */
+export function multiplyAddColumnsInOrder(p: SparsePattern, re: Float64Array, im: Float64Array, xRe: Float64Array, xIm: Float64Array, t: number, yRe: Float64Array, yIm: Float64Array): void {
+  const { diagonal, neighbourStart, neighbourPosition, lowerSlot, upperSlot } = p;
+  for (let k = 0; k < p.size; k++) {
+    const row = k * t;
+    const d = diagonal[k]!;
+    const dr = re[d]!;
+    const di = im[d]!;
+    for (let c = 0; c < t; c++) {
+      const xr = xRe[row + c]!;
+      const xi = xIm[row + c]!;
+      yRe[row + c] = yRe[row + c]! + dr * xr - di * xi;
+      yIm[row + c] = yIm[row + c]! + dr * xi + di * xr;
+    }
+    for (let a = neighbourStart[k]!, end = neighbourStart[k + 1]!; a < end; a++) {
+      const i = neighbourPosition[a]! * t;
+      const u = upperSlot[a]!; // A(k, i)
+      const l = lowerSlot[a]!; // A(i, k)
+      const ur = re[u]!;
+      const ui = im[u]!;
+      const lr = re[l]!;
+      const li = im[l]!;
+      for (let c = 0; c < t; c++) {
+        const xr = xRe[row + c]!;
+        const xi = xIm[row + c]!;
+        yRe[row + c] = yRe[row + c]! + ur * xRe[i + c]! - ui * xIm[i + c]!;
+        yIm[row + c] = yIm[row + c]! + ur * xIm[i + c]! + ui * xRe[i + c]!;
+        yRe[i + c] = yRe[i + c]! + lr * xr - li * xi;
+        yIm[i + c] = yIm[i + c]! + lr * xi + li * xr;
+      }
+    }
+  }
+}
+
+/**
  * The forward half: x ← L⁻¹·x (L unit lower triangular), in place, in elimination order.
  * For a complex-symmetric matrix (every nodal matrix here), U = D·Lᵀ with D the pivots,
  * so aᵀ·A⁻¹·b = (L⁻¹a)ᵀ·D⁻¹·(L⁻¹b): transfer impedances need no back substitution.

@@ -15,7 +15,8 @@
  * residual is not at round-off level, returns false and the caller inverts the dense matrix
  * with partial pivoting as before.
  */
-import { analysePattern, factorInPlace, substituteColumnsInOrder, type SparsePattern } from '../_internal/sparseComplexLu.js';
+import { analysePattern, factorInPlace, multiplyAddColumnsInOrder, substituteColumnsInOrder, type SparsePattern } from '../_internal/sparseComplexLu.js';
+import { multiplyAddFourColumnsInOrder, substituteFourColumnsInOrder } from '../_internal/fourColumnSparse.js';
 
 /** A pivot at or below this share of the largest diagonal entry hands the evaluation to the dense pivoted inverse. */
 const RELATIVE_PIVOT = 1e-8;
@@ -131,7 +132,8 @@ export class SparseTerminalImpedance {
     xRe.fill(0);
     xIm.fill(0);
     for (let c = 0; c < t; c++) xRe[p.position[this.terminals[c]!]! * t + c] = 1;
-    substituteColumnsInOrder(p, this.re, this.im, xRe, xIm, t, this.sumRe, this.sumIm);
+    if (t === 4) substituteFourColumnsInOrder(p, this.re, this.im, xRe, xIm);
+    else substituteColumnsInOrder(p, this.re, this.im, xRe, xIm, t, this.sumRe, this.sumIm);
     if (!this.residualsSmall()) return false;
     for (let c = 0; c < t; c++)
       for (let r = 0; r < t; r++) {
@@ -176,47 +178,19 @@ export class SparseTerminalImpedance {
    */
   private residualsSmall(): boolean {
     const p = this.pattern;
-    const { diagonal, neighbourStart, neighbourPosition, lowerSlot, upperSlot } = p;
     const t = this.terminals.length;
     const re = this.originalRe;
     const im = this.originalIm;
     const xRe = this.xRe;
     const xIm = this.xIm;
-    // r = Y·x − e accumulated per position, each terminal's sums in the order of a check of its vector alone.
+    // r = Y·x − e, each terminal's sums in the order of a check of its vector alone.
     const n = p.size;
     const rRe = this.rRe;
     const rIm = this.rIm;
     rRe.fill(0);
     rIm.fill(0);
-    for (let k = 0; k < n; k++) {
-      const row = k * t;
-      const d = diagonal[k]!;
-      const dr = re[d]!;
-      const di = im[d]!;
-      for (let c = 0; c < t; c++) {
-        const xr = xRe[row + c]!;
-        const xi = xIm[row + c]!;
-        rRe[row + c] = rRe[row + c]! + dr * xr - di * xi;
-        rIm[row + c] = rIm[row + c]! + dr * xi + di * xr;
-      }
-      for (let a = neighbourStart[k]!, end = neighbourStart[k + 1]!; a < end; a++) {
-        const i = neighbourPosition[a]! * t;
-        const u = upperSlot[a]!; // Y(k, i)
-        const l = lowerSlot[a]!; // Y(i, k)
-        const ur = re[u]!;
-        const ui = im[u]!;
-        const lr = re[l]!;
-        const li = im[l]!;
-        for (let c = 0; c < t; c++) {
-          const xr = xRe[row + c]!;
-          const xi = xIm[row + c]!;
-          rRe[row + c] = rRe[row + c]! + ur * xRe[i + c]! - ui * xIm[i + c]!;
-          rIm[row + c] = rIm[row + c]! + ur * xIm[i + c]! + ui * xRe[i + c]!;
-          rRe[i + c] = rRe[i + c]! + lr * xr - li * xi;
-          rIm[i + c] = rIm[i + c]! + lr * xi + li * xr;
-        }
-      }
-    }
+    if (t === 4) multiplyAddFourColumnsInOrder(p, re, im, xRe, xIm, rRe, rIm);
+    else multiplyAddColumnsInOrder(p, re, im, xRe, xIm, t, rRe, rIm);
     // Below this no |Y|, |x| or product of the two overflows, so the scale is finite and at least 1.
     const modest = largestPart(re, im) < 1e150 && largestPart(xRe, xIm) < 1e150;
     let scaled = false;
