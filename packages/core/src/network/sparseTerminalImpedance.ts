@@ -191,17 +191,20 @@ export class SparseTerminalImpedance {
     rIm.fill(0);
     if (t === 4) multiplyAddFourColumnsInOrder(p, re, im, xRe, xIm, rRe, rIm);
     else multiplyAddColumnsInOrder(p, re, im, xRe, xIm, t, rRe, rIm);
-    // Below this no |Y|, |x| or product of the two overflows, so the scale is finite and at least 1.
+    // Below this no |Y|, |x| or product of the two overflows, so the scale is finite and at least 1
+    // (a NaN anywhere makes r NaN, which no check passes).
     const modest = largestPart(re, im) < 1e150 && largestPart(xRe, xIm) < 1e150;
     let scaled = false;
     for (let c = 0; c < t; c++) {
       const source = p.position[this.terminals[c]!]! * t + c;
       rRe[source] = rRe[source]! - 1;
-      let worst = 0;
+      // The largest |r|: the root of the largest |r|², as √ is monotonic (and NaN stays NaN).
+      let worst2 = 0;
       for (let k = 0; k < n; k++) {
         const e = k * t + c;
-        worst = Math.max(worst, Math.sqrt(rRe[e]! * rRe[e]! + rIm[e]! * rIm[e]!));
+        worst2 = Math.max(worst2, rRe[e]! * rRe[e]! + rIm[e]! * rIm[e]!);
       }
+      const worst = Math.sqrt(worst2);
       if (modest && worst <= RESIDUAL_LIMIT) continue;
       if (!scaled) this.sumScales();
       scaled = true;
@@ -245,10 +248,15 @@ export class SparseTerminalImpedance {
   }
 }
 
-/** The largest |re| or |im| of a vector (NaN where one is NaN). */
+/** The largest |re| or |im| of a vector (NaNs passed over). */
 function largestPart(re: Float64Array, im: Float64Array): number {
   let largest = 0;
-  for (let k = 0; k < re.length; k++) largest = Math.max(largest, Math.abs(re[k]!), Math.abs(im[k]!));
+  for (let k = 0; k < re.length; k++) {
+    const a = Math.abs(re[k]!);
+    const b = Math.abs(im[k]!);
+    if (a > largest) largest = a;
+    if (b > largest) largest = b;
+  }
   return largest;
 }
 
