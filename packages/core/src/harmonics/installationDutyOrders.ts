@@ -17,7 +17,6 @@ import type { Installation } from '../board/boardModel.js';
 import type { CompiledNetwork } from '../network/compiledNetwork.js';
 import { liveKey, type CompiledNetworkCache } from '../network/compiledNetworkCache.js';
 import type { InstallationCircuit } from '../network/installationCircuit.js';
-import { boardOfInstallation } from '../network/installationModel.js';
 import { solveLinearVoltages } from '../network/solveFixedInstallation.js';
 import { readBranchStates, type CompiledInstallation, type SolveOptions } from '../network/solveNetwork.js';
 import { resolveSolveOptions } from '../network/solveOptions.js';
@@ -61,18 +60,16 @@ export function installationDutyOrders(networks: CompiledNetworkCache, solve?: S
     const nodeVoltages = Array.from({ length: net.nodeCount }, (_, v): ComplexValue | null => (net.live[v] ? { re: net.voltageRe[v]!, im: net.voltageIm[v]! } : null));
     const admittances = Array.from({ length: net.branchCount }, (_, k): ComplexValue => ({ re: net.admittanceRe[k]!, im: net.admittanceIm[k]! }));
     const branches = readBranchStates(installation, layout, { nodeVoltages, admittances });
-    const board = boardOfInstallation(installation, b);
     let kept = atOrders.get(net);
     if (!kept) atOrders.set(net, (kept = new Map()));
     return [
-      { order: 1, solution: { board, topology: layout.topologies[b]!, nodeVoltages } },
+      { order: 1, solution: { topology: layout.topologies[b]!, nodeVoltages } },
       ...orders.map((h): DutyOrder => {
         const known = kept.get(h);
         const atOrder = known ? networks.againForLinearSolve(known) : networks.compileForLinearSolve(installationAtOrder(installation, models, h));
         if (!known) kept.set(h, atOrder);
         writeAtOrder(atOrder, branches, models, h);
-        // The board's loads and terminals are those at every order; its supply at h is not read.
-        return { order: h, solution: { board, topology: atOrder.layout.topologies[b]!, nodeVoltages: solveLinearVoltages(atOrder.network) } };
+        return { order: h, solution: { topology: atOrder.layout.topologies[b]!, nodeVoltages: solveLinearVoltages(atOrder.network) } };
       }),
     ];
   };

@@ -155,7 +155,7 @@ export function capacitorDuty(board: Board, model: HarmonicModel, solveOrders: D
       const at = withCapacitanceFactor(withState, model, condition.capacitancePercent / 100);
       const setting: OtherBanksSetting = condition.otherBanks === 'switched' ? { partsOff: partsOff.get(condition.otherBanksState!)! } : condition.otherBanks === 'off' ? 'off' : 'on';
       const orders = solveOrders(at.board, at.model, condition.loads === 'off', setting);
-      const c = dutyCase(orders, at.model.bank!, steps, combinationLabel(bank, steps), limits, condition);
+      const c = dutyCase(at.board, orders, at.model.bank!, steps, combinationLabel(bank, steps), limits, condition);
       if (!c) continue;
       if (condition.capacitancePercent === 100 && condition.loads === 'as given' && (condition.otherBanks === undefined || condition.otherBanks === 'on')) nominalCases.push(c);
       highestCapacitorVoltageV = Math.max(highestCapacitorVoltageV, c.capacitorVoltageV);
