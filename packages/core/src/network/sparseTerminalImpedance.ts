@@ -7,8 +7,10 @@
  * (about 200 unknowns) took 8 s to scan with no bank at all, 100 boards a minute, 300 boards
  * half an hour. The nodal matrix of a radial installation is sparse and its pattern is fixed for
  * the whole scan, so the fixed-pattern complex LU (`_internal/sparseComplexLu.ts`, the one the
- * fundamental solve uses) factorises it in time linear in the boards, and a few substitutions
- * (one per terminal) give every pair's impedance.
+ * fundamental solve uses) factorises it in time linear in the boards, and a substitution of a
+ * unit source at every terminal gives every pair's impedance: one pass over the factors for all
+ * the terminals at once (written out for a board's four, fourColumnSparse.ts), each terminal's
+ * numbers those of its own substitution.
  *
  * The LU does not pivot. A nodal matrix at a harmonic order mixes inductive and capacitive parts,
  * so a pivot can come out small near a series resonance; `evaluate` then, or when the solution's
