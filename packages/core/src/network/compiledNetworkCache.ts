@@ -147,6 +147,7 @@ export class CompiledNetworkCache {
    */
   againForLoadFlow(compiled: CompiledInstallation, installation: Installation, powers: readonly ComplexValue[]): CompiledInstallation {
     const network = compiled.network;
+    if (powers.length !== network.branchCount) throw new RangeError(`againForLoadFlow: ${network.branchCount} branch powers expected (received ${powers.length})`);
     network.injectionRe.fill(0);
     network.injectionIm.fill(0);
     powers.forEach((s, k) => {
