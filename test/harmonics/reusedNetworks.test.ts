@@ -7,6 +7,8 @@
  * solve compiled alone.
  * Switching a step off kills its star point, so those states need networks of their own: the
  * cache compiles one per order and set of live nodes, and a dead star reads as dead.
+ * The duty's own solves (installationDutyOrders.ts), which hand those networks back without laying
+ * each state out and read only node voltages, read the voltages the full solves give, to the bit.
  * The same on a single board (`solveHarmonicOrders`) through its bank's step states.
  */
 import { describe, expect, it } from 'vitest';
@@ -33,6 +35,7 @@ import {
   type Installation,
 } from '@trivar/core';
 import { withInstallationLoadsOff, withPartsOff } from '../../packages/core/src/harmonics/dutyConditions.js';
+import { installationDutyOrders } from '../../packages/core/src/harmonics/installationDutyOrders.js';
 import { cAbs } from '../support/complexMath.js';
 
 const INSTALLATION = `
@@ -121,6 +124,43 @@ describe('harmonic solves through a CompiledNetworkCache equal fresh compiles', 
     expect(livePatterns.size).toBe(4);
     expect(networks.compiled).toBe((orders.length + 1) * livePatterns.size);
     expect(networks.compiled + networks.reused).toBe(states.length * (orders.length + 1));
+  });
+
+  it('the duty’s solves read the same node voltages as full solves, in every state and order', () => {
+    const { installation, models, bankBoards } = resolveInstallationHarmonics(parseInstallation(readBoardText(INSTALLATION)));
+    const [hall, cold] = bankBoards as [number, number];
+    const bank = models[hall]!.bank!;
+    const hallState = (steps: boolean[], factor: number) => {
+      const at = withCapacitanceFactor(withSteps(boardOfInstallation(installation, hall), bank, steps), models[hall]!, factor);
+      return { installation: installationOf(at.board).installation, models: models.map((m, b) => (b === hall ? at.model : m)) };
+    };
+    const coldOff = (inst: Installation) => withPartsOff(inst, partsOf(models).map((p, b) => (b === cold ? p : [])));
+    const off = hallState([false, false, false], 1);
+    const states: [string, Installation, readonly HarmonicModel[]][] = [
+      ['as given', installation, models],
+      ['hall step 3 off, capacitance +10 %', hallState([true, true, false], 1.1).installation, hallState([true, true, false], 1.1).models],
+      ['every load off', withInstallationLoadsOff(installation), models],
+      ['hall steps 1 and 2 off, capacitance −5 %', hallState([false, false, true], 0.95).installation, hallState([false, false, true], 0.95).models],
+      ['every hall step off, cold room bank off', coldOff(off.installation), off.models],
+      ['hall step 3 off, capacitance −5 %', hallState([true, true, false], 0.95).installation, hallState([true, true, false], 0.95).models],
+      ['as given again', installation, models],
+    ];
+    const orders = ordersOf(models);
+    const networks = new CompiledNetworkCache();
+    const solveStates = installationDutyOrders(networks);
+    for (const [label, inst, stateModels] of states) {
+      const duty = solveStates(inst, stateModels, orders, hall);
+      const fundamental = solveInstallationNetwork(inst);
+      const full = [fundamental, ...orders.map((h) => solveInstallationAtOrder(fundamental, stateModels, h))];
+      expect(duty.map((o) => o.order)).toEqual([1, ...orders]);
+      duty.forEach((o, k) => {
+        const board = full[k]!.boards[hall]!;
+        expect(o.solution.nodeVoltages, `${label}, order ${o.order}`).toEqual(board.nodeVoltages);
+        expect([...o.solution.topology.terminalNode], `${label}, order ${o.order}`).toEqual([...board.topology.terminalNode]);
+      });
+    }
+    // The states that share live nodes share networks: found again without being laid out.
+    expect(networks.reused).toBeGreaterThan(0);
   });
 
   it('a board through its bank’s step states, at every order', () => {

@@ -9,9 +9,9 @@
  * voltage V_h (at h = 1: U/(1 − p)).
  */
 import { abs, sub, ZERO } from '../complex.js';
-import { terminalVoltage } from '../network/solveNetwork.js';
+import { terminalVoltage, type NetworkSolution } from '../network/solveNetwork.js';
+import type { Board } from '../board/boardModel.js';
 import type { BankModel } from './harmonicModel.js';
-import type { OrderSolution } from './readHarmonics.js';
 import type { CapacitorDuty, DutyCase, DutyCondition, DutyFigures, DutyLimits } from './harmonicsResult.js';
 
 export const DUTY_LIMITS: Readonly<Record<CapacitorDuty['standard'], { limits: DutyLimits; source: string }>> = {
@@ -70,13 +70,21 @@ export function dutyRatio(f: DutyFigures, limits: DutyLimits): number {
   );
 }
 
+/** What the duty reads of a solved order (h = 1 the fundamental, first): the node voltages, and the bank's board's terminals among them. */
+export interface DutyOrder {
+  readonly order: number;
+  readonly solution: Pick<NetworkSolution, 'topology' | 'nodeVoltages'>;
+}
+
 /**
  * The worst branch of the bank in one state. Every part of the bank has the
  * same per-unit duty at a given branch position, so the first part on is read.
  * Returns null when no part is on.
+ * @param board the bank's board as solved: its loads' branches give the terminals read in `orders`
  */
 export function dutyCase(
-  orders: readonly OrderSolution[],
+  board: Board,
+  orders: readonly DutyOrder[],
   bank: BankModel,
   steps: readonly boolean[],
   label: string,
@@ -85,7 +93,6 @@ export function dutyCase(
 ): DutyCase | null {
   const partOn = bank.fixedLoad ?? bank.stepLoads.find((_, k) => steps[k]);
   if (partOn === undefined) return null;
-  const board = orders[0]!.solution.board;
   let worst: DutyCase | null = null;
   for (const b of board.loads[partOn]!.branches) {
     const volts = orders.map((o) => ({

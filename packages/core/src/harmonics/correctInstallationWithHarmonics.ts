@@ -142,7 +142,7 @@ export function compareInstallationWithHarmonics(spec: HarmonicsInstallationSpec
   const { board, placed } = placeCorrection(withBanksInService(installation, spec.harmonics?.banks), options);
   let without: ResonanceWithoutBank | null = null;
   const checker = installationBankChecker(spec, placed.boardIndex, (w) => (without ??= w));
-  const comparison = compareWithBankCheck(board, study, (arrangementStudy) => correctWithBankCheck(board, arrangementStudy, spec.harmonics?.detuning, checker, WORDING));
+  const comparison = compareWithBankCheck(board, study, (arrangementStudy, studied) => correctWithBankCheck(board, arrangementStudy, spec.harmonics?.detuning, checker, WORDING, studied));
   const chosen = comparison.outcomes.find((o) => o.arrangement === comparison.recommended)?.report;
   const studied = comparison.outcomes.find((o) => o.report !== null)?.report;
   return {

@@ -327,9 +327,10 @@ export interface HarmonicCheckWording {
  * @param spec the validated board file (spectra, background, harmonics section)
  * @param board `normaliseBoard(spec)`
  * @param study the correction study (as for `correctBoard`)
+ * @param studied `correctBoard(board, study)` where the caller has it (a comparison made it), not made again
  */
-export function correctWithHarmonics(spec: HarmonicsBoardSpec, board: Board, study: unknown): HarmonicCorrectionReport {
-  return correctWithBankCheck(board, study, spec.harmonics?.detuning, boardBankChecker(spec, board), { file: 'board file' });
+export function correctWithHarmonics(spec: HarmonicsBoardSpec, board: Board, study: unknown, studied?: CorrectionReport): HarmonicCorrectionReport {
+  return correctWithBankCheck(board, study, spec.harmonics?.detuning, boardBankChecker(spec, board), { file: 'board file' }, studied);
 }
 
 /**
@@ -337,6 +338,7 @@ export function correctWithHarmonics(spec: HarmonicsBoardSpec, board: Board, stu
  * board of an installation): plain and detuned variants, one chosen.
  * @param board the board the equipment is on (with its place in an installation where it has one)
  * @param detuning the file's `harmonics.detuning`
+ * @param studied `correctBoard(board, study)` where the caller has it (a comparison made it), not made again
  */
 export function correctWithBankCheck<Check>(
   board: Board,
@@ -344,8 +346,9 @@ export function correctWithBankCheck<Check>(
   detuning: number | 'auto' | 'none' | undefined,
   checkBank: BankChecker<Check>,
   wording: HarmonicCheckWording,
+  studied?: CorrectionReport,
 ): HarmonicCorrectionReport<Check> {
-  const plain = variantOf(checkBank, board, correctBoard(board, study), 'plain', 0);
+  const plain = variantOf(checkBank, board, studied ?? correctBoard(board, study), 'plain', 0);
   // No capacitors built (nothing to add, a board already leading, reactors only): no bank to scan or
   // detune, so no variant is sized or checked (a table of zero-kvar banks that "pass" would read as a
   // check that was made).
@@ -420,19 +423,24 @@ export type HarmonicComparison = CorrectionComparison & {
  * chosen variant passes, on the figures of those variants as shown.
  */
 export function compareWithHarmonics(spec: HarmonicsBoardSpec, board: Board, study: unknown): HarmonicComparison {
-  return compareWithBankCheck(board, study, (arrangementStudy) => correctWithHarmonics(spec, board, arrangementStudy));
+  return compareWithBankCheck(board, study, (arrangementStudy, studied) => correctWithHarmonics(spec, board, arrangementStudy, studied));
 }
 
 /**
  * The arrangement comparison with each arrangement's study run by `correctChecked` (the correction
- * study with the harmonic check of its bank, `correctWithBankCheck`).
+ * study with the harmonic check of its bank, `correctWithBankCheck`), given the comparison's own
+ * report of that study, which it need not make again.
  */
-export function compareWithBankCheck<Check>(board: Board, study: unknown, correctChecked: (arrangementStudy: unknown) => HarmonicCorrectionReport<Check>): HarmonicComparison {
+export function compareWithBankCheck<Check>(
+  board: Board,
+  study: unknown,
+  correctChecked: (arrangementStudy: unknown, studied: CorrectionReport) => HarmonicCorrectionReport<Check>,
+): HarmonicComparison {
   const comparison = compareCorrections(board, study);
   const parsed = parseCorrectionSpec(study, board);
   const checked = comparison.outcomes.map((o) => {
     if (!o.report) return { outcome: o, harmonics: null };
-    const report = correctChecked(specFor(parsed, o.arrangement));
+    const report = correctChecked(specFor(parsed, o.arrangement), o.report);
     const { harmonics, ...plainReport } = report;
     return { outcome: { ...o, report: plainReport, figures: figuresOf(plainReport) }, harmonics };
   });

@@ -163,6 +163,8 @@ export function ordersPresent(model: HarmonicModel): number[] {
 /**
  * What a bank state connects, as text: per branch (from-to), the summed
  * susceptance of the parts that are on, to 12 digits. Equal keys are the same network.
+ * The branches in code-unit order: any fixed order makes equal states equal keys, and
+ * localeCompare (a collator per call) cost a correction with harmonic data some 60 ms.
  */
 export function stateKey(board: Board, bank: BankModel, steps: readonly boolean[]): string {
   const on = new Map<string, number>();
@@ -172,6 +174,6 @@ export function stateKey(board: Board, bank: BankModel, steps: readonly boolean[
       const where = `${b.from}>${b.to.startsWith('star:') ? 'star' : b.to}`;
       on.set(where, (on.get(where) ?? 0) - b.sNominal.im / (b.vNominal * b.vNominal));
     }
-  return [...on].sort(([a], [b]) => a.localeCompare(b)).map(([k, v]) => `${k}:${v.toPrecision(12)}`).join(' ');
+  return [...on].sort(([a], [b]) => (a < b ? -1 : a > b ? 1 : 0)).map(([k, v]) => `${k}:${v.toPrecision(12)}`).join(' ');
 }
 

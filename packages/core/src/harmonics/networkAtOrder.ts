@@ -8,7 +8,7 @@
  * start from the admittance the fundamental solve converged to, in series
  * (R + jX) or parallel (G + jB) form; detuned steps follow detuning.ts.
  */
-import { abs, complex, inverse, polar, arg, ZERO, type ComplexValue } from '../complex.js';
+import { abs, complex, polar, arg, ZERO, type ComplexValue } from '../complex.js';
 import type { Board } from '../board/boardModel.js';
 import type { NetworkSolution } from '../network/solveNetwork.js';
 import { solveFixedNetwork, type FixedSolveOptions } from '../network/solveFixedNetwork.js';
@@ -23,16 +23,44 @@ export function impedanceAtOrder(z: ComplexValue, h: number, resistance: Harmoni
 
 /** Admittance of a linear or detuned branch at order h from its fundamental admittance y1. */
 export function branchAdmittanceAtOrder(y1: ComplexValue, behaviour: LoadBehaviour, h: number): ComplexValue {
-  if (abs(y1) === 0) return ZERO;
-  switch (behaviour.kind) {
-    case 'non-linear':
-      return ZERO;
-    case 'detuned':
-      return complex(0, detunedSusceptance(y1.im, behaviour.p, h));
-    case 'linear':
-      if (behaviour.form === 'parallel') return complex(y1.re, y1.im < 0 ? y1.im / h : y1.im * h);
-      return inverse(impedanceAtOrder(inverse(y1), h));
-  }
+  branchAdmittanceAtOrderInto(y1, behaviour, h, scratch, 0);
+  return complex(scratch[0]!, scratch[1]!);
+}
+
+const scratch = new Float64Array(2);
+
+/**
+ * `branchAdmittanceAtOrder` into out[at] (real part) and out[at + 1], allocating nothing: a
+ * resonance scan takes every bank part to each order it refines a peak at, some 10^5 times.
+ */
+export function branchAdmittanceAtOrderInto(y1: ComplexValue, behaviour: LoadBehaviour, h: number, out: Float64Array, at: number): void {
+  let g = 0;
+  let b = 0;
+  // |y1| = 0 exactly when both parts are (abs's Math.hypot allocates).
+  if (!(y1.re === 0 && y1.im === 0))
+    switch (behaviour.kind) {
+      case 'non-linear':
+        break;
+      case 'detuned':
+        b = detunedSusceptance(y1.im, behaviour.p, h);
+        break;
+      case 'linear':
+        if (behaviour.form === 'parallel') {
+          g = y1.re;
+          b = y1.im < 0 ? y1.im / h : y1.im * h;
+        } else {
+          // inverse(impedanceAtOrder(inverse(y1), h)) with complex.ts's division written out, term for term.
+          const d1 = y1.re * y1.re + y1.im * y1.im;
+          const r = (1 * y1.re + 0 * y1.im) / d1;
+          const x1 = (0 * y1.re - 1 * y1.im) / d1;
+          const x = x1 >= 0 ? x1 * h : x1 / h;
+          const d = r * r + x * x;
+          g = (1 * r + 0 * x) / d;
+          b = (0 * r - 1 * x) / d;
+        }
+    }
+  out[at] = g;
+  out[at + 1] = b;
 }
 
 /** The supply EMFs of order h: the background distortion with each phase at h × its fundamental angle. */
@@ -44,14 +72,19 @@ function emfAtOrder(board: Board, model: HarmonicModel, h: number): ComplexValue
 /** Per load, per branch: the harmonic current a non-linear load draws at order h (from → to), or null. */
 export function injectionsAtOrder(fundamental: NetworkSolution, model: HarmonicModel, h: number): (ComplexValue | null)[][] {
   return fundamental.board.loads.map((load, l) => {
-    const behaviour = model.loads[l]!;
-    const content = behaviour.kind === 'non-linear' ? behaviour.spectrum.find((o) => o.order === h) : undefined;
-    return load.branches.map((_, k) => {
-      if (!content) return null;
-      const i1 = fundamental.branches[l]![k]!.current;
-      return polar(abs(i1) * content.fraction, h * arg(i1) + content.angleRad);
-    });
+    const content = contentAtOrder(model.loads[l]!, h);
+    return load.branches.map((_, k) => (content ? injectionAtOrder(fundamental.branches[l]![k]!.current, content, h) : null));
   });
+}
+
+/** What a load injects at order h: its spectrum's entry there; none for a linear load or an order its spectrum lacks. */
+export function contentAtOrder(behaviour: LoadBehaviour, h: number): { readonly fraction: number; readonly angleRad: number } | undefined {
+  return behaviour.kind === 'non-linear' ? behaviour.spectrum.find((o) => o.order === h) : undefined;
+}
+
+/** The current of order h a non-linear branch draws (from → to), from its fundamental current i1. */
+export function injectionAtOrder(i1: ComplexValue, content: { readonly fraction: number; readonly angleRad: number }, h: number): ComplexValue {
+  return polar(abs(i1) * content.fraction, h * arg(i1) + content.angleRad);
 }
 
 /**

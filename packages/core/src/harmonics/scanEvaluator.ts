@@ -21,7 +21,7 @@ import { compileInstallation, type InstallationSolution } from '../network/solve
 import { copyNodalMatrix, createNodalMatrix, impedanceBetween, invertNodalMatrix, stampAdmittance, type NodalMatrix } from '../network/terminalImpedance.js';
 import { SparseTerminalImpedance } from '../network/sparseTerminalImpedance.js';
 import type { HarmonicModel, LoadBehaviour } from './harmonicModel.js';
-import { branchAdmittanceAtOrder } from './networkAtOrder.js';
+import { branchAdmittanceAtOrderInto } from './networkAtOrder.js';
 
 /** A bank the evaluator switches: the board it is on and its parts. */
 export interface ScanBank {
@@ -227,8 +227,8 @@ export function createInstallationScanEvaluator(
   const stampPart = Int32Array.from(stamps, (x) => x.part);
   const stampP = Int32Array.from(stamps, (x) => x.p);
   const stampQ = Int32Array.from(stamps, (x) => x.q);
-  const stampRe = new Float64Array(stamps.length);
-  const stampIm = new Float64Array(stamps.length);
+  /** Each stamp's admittance at the prepared order: g at 2k, b at 2k + 1. */
+  const stampY = new Float64Array(2 * stamps.length);
   // Floating star points of the banks are tied to nothing while every part on them is off, so they get a unit diagonal then.
   const starNodesOf = (b: number, l: number) => {
     const terminalsOf = layout.topologies[b]!.terminalNode;
@@ -281,7 +281,7 @@ export function createInstallationScanEvaluator(
   const evaluateSparse = (): boolean => {
     if (!sparse) return false;
     sparse.beginState();
-    for (let k = 0; k < stampPart.length; k++) if (partOn[stampPart[k]!] === 1) sparse.stamp(stampSlots, 4 * k, stampRe[k]!, stampIm[k]!);
+    for (let k = 0; k < stampPart.length; k++) if (partOn[stampPart[k]!] === 1) sparse.stamp(stampSlots, 4 * k, stampY[2 * k]!, stampY[2 * k + 1]!);
     for (let k = 0; k < starNode.length; k++) if (!tiedStar(k)) sparse.stamp(starSlots, 4 * k, 1, 0);
     return sparse.evaluate(ends, zRe, zIm);
   };
@@ -294,7 +294,7 @@ export function createInstallationScanEvaluator(
     }
     const { base, work, inverseWork } = denseMatrices();
     copyNodalMatrix(base, work);
-    for (let k = 0; k < stampPart.length; k++) if (partOn[stampPart[k]!] === 1) stampAdmittance(work, stampP[k]!, stampQ[k]!, stampRe[k]!, stampIm[k]!);
+    for (let k = 0; k < stampPart.length; k++) if (partOn[stampPart[k]!] === 1) stampAdmittance(work, stampP[k]!, stampQ[k]!, stampY[2 * k]!, stampY[2 * k + 1]!);
     for (let k = 0; k < starNode.length; k++) if (!tiedStar(k)) stampAdmittance(work, starNode[k]!, -1, 1, 0);
     if (size > 0) invertNodalMatrix(work, inverseWork);
     for (let k = 0; k < ends.length; k++) {
@@ -317,11 +317,7 @@ export function createInstallationScanEvaluator(
         sparse.clearBase();
         stampFixed(h, (i, g, b) => sparse.stampBase(fixedSlots, 4 * i, g, b));
       } else denseMatrices();
-      stamps.forEach((x, k) => {
-        const y = branchAdmittanceAtOrder(x.y1, x.behaviour, h);
-        stampRe[k] = y.re;
-        stampIm[k] = y.im;
-      });
+      for (let k = 0; k < stamps.length; k++) branchAdmittanceAtOrderInto(stamps[k]!.y1, stamps[k]!.behaviour, h, stampY, 2 * k);
     },
     impedances(steps, out, offset) {
       for (let k = 0; k < parts.length; k++) {

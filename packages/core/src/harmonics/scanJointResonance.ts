@@ -19,7 +19,7 @@ import { InputError, inputIssue } from '../errors.js';
 import type { InstallationSolution } from '../network/solveNetwork.js';
 import { HARMONICS_DEFAULTS } from './harmonicsDefaults.js';
 import { stateKey, type BankModel, type HarmonicModel } from './harmonicModel.js';
-import type { JointPeak, JointScan, JointScanCombination, OtherBankLevel, ScanPeak } from './harmonicsResult.js';
+import type { JointPeak, JointScan, JointScanCombination, OtherBankLevel, ResonanceScan, ScanPeak } from './harmonicsResult.js';
 import { bankKvarOn, combinationLabel, refinedPeaks, stepCombinations } from './scanResonance.js';
 import type { BankState, ScanEvaluator } from './scanEvaluator.js';
 import { bankStateWords } from './harmonicsWording.js';
@@ -73,6 +73,11 @@ export interface JointScanOptions {
   readonly checkedOrders: readonly number[];
   /** Most networks scanned per bank before the other banks are taken at their extremes. @defaultValue HARMONICS_DEFAULTS.jointStateLimit */
   readonly stateLimit?: number;
+  /**
+   * The scan of this board on the same evaluator and grid (scanResonance): its peaks are those of the
+   * states with every other bank fully on, which it has evaluated already, so they are taken from it.
+   */
+  readonly scan?: ResonanceScan;
 }
 
 /** Every network state of a joint scan: per bank of the evaluator, its state. */
@@ -187,11 +192,16 @@ export function scanJointResonance(fundamental: InstallationSolution, models: re
       return state;
     }),
   );
+  // Each state's peaks: the scan's where the other banks are all fully on (the same network, so the same
+  // numbers), the others scanned here. The scan's grid is this one, and so are its evaluator's networks.
+  const allOn = (levelsOn: readonly Level[]) => levelsOn.every((l) => l.fixedOn && l.steps.every(Boolean));
+  const known = (s: number) => (options.scan && allOn(chosen[s % chosen.length]!) ? options.scan.combinations[distinct[Math.floor(s / chosen.length)]!]!.peaks : null);
+  const peaksOf: (readonly ScanPeak[] | null)[] = states.map((_, s) => known(s));
+  const toScan = states.flatMap((_, s) => (peaksOf[s] === null ? [s] : []));
+  scanNetworkStates(evaluator, options.grid, toScan.map((s) => states[s]!), (t, _values, peaks) => (peaksOf[toScan[t]!] = peaks));
   // Per distinct combination, every state of the other banks with its peaks (states run combination by combination).
-  const scanned = distinct.map(() => [] as { otherBanks: string; peaks: ScanPeak[] }[]);
-  scanNetworkStates(evaluator, options.grid, states, (s, _values, peaks) => {
-    scanned[Math.floor(s / chosen.length)]!.push({ otherBanks: stateWords(otherNames, chosen[s % chosen.length]!), peaks });
-  });
+  const scanned = distinct.map(() => [] as { otherBanks: string; peaks: readonly ScanPeak[] }[]);
+  states.forEach((_, s) => scanned[Math.floor(s / chosen.length)]!.push({ otherBanks: stateWords(otherNames, chosen[s % chosen.length]!), peaks: peaksOf[s]! }));
   const summaries = new Map(distinct.map((c, d) => [c, summarise(scanned[d]!, options.checkedOrders)]));
   return {
     otherBanks: others.map((_, j) => ({

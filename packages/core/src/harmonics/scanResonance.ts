@@ -55,10 +55,13 @@ export function createScanEvaluator(fundamental: NetworkSolution, model: Harmoni
  */
 export function roundForPlot(curve: Float64Array | readonly number[]): number[] {
   let largest = 0;
-  for (const z of curve) if (z > largest) largest = z;
+  for (let i = 0; i < curve.length; i++) if (curve[i]! > largest) largest = curve[i]!;
   if (!(largest > 0)) return Array.from(curve);
   const step = 10 ** (Math.floor(Math.log10(largest)) - 6);
-  return Array.from(curve, (z) => Math.round(z / step) * step);
+  // Indexed, not Array.from's iterator: a correction with harmonic data rounds some 10^5 points per variant.
+  const rounded: number[] = [];
+  for (let i = 0; i < curve.length; i++) rounded.push(Math.round(curve[i]! / step) * step);
+  return rounded;
 }
 
 /** The scan grid: 1, 1 + step, …, up to maxOrder. */
@@ -68,15 +71,16 @@ export function scanGrid(maxOrder: number, step: number): number[] {
 }
 
 /**
- * Refines a peak of |Z| bracketed by grid points a < m < b (f(m) the largest).
+ * Refines a peak of |Z| bracketed by grid points a < m < b (f(m) the largest; za, zm, zb
+ * the values the scan has at them, f's own, so not evaluated again).
  * Near a parallel resonance 1/|Z|² is close to a parabola in h, so successive
  * parabolic interpolation on it converges in a few evaluations; a step that
  * leaves the bracket falls back to bisecting the larger side.
  */
-function refineMaximum(f: (h: number) => number, a: number, m: number, b: number, fm: number): { h: number; value: number } {
+function refineMaximum(f: (h: number) => number, a: number, m: number, b: number, za: number, fm: number, zb: number): { h: number; value: number } {
   const g = (z: number) => 1 / (z * z);
-  let fa = g(f(a));
-  let fb = g(f(b));
+  let fa = g(za);
+  let fb = g(zb);
   let gm = g(fm);
   let best = { h: m, value: fm };
   for (let iteration = 0; iteration < 40 && b - a > 1e-9; iteration++) {
@@ -129,7 +133,7 @@ export function peakIndices(values: ArrayLike<number>, prominence: number): numb
 /**
  * Every peak of one network state's curves, refined between grid points: `values[i·pairs + k]` is
  * |Z| of pair k at grid point i, and `evaluate` fills every pair's |Z| for the order the evaluator
- * was last prepared at, in that same state.
+ * was last prepared at, in that same state (so a peak's bracket is read off `values`, not evaluated again).
  */
 export function refinedPeaks(
   evaluator: ScanEvaluator,
@@ -152,7 +156,7 @@ export function refinedPeaks(
         evaluate(out);
         return out[k]!;
       };
-      const refined = refineMaximum(at, grid[i - 1]!, grid[i]!, grid[i + 1]!, curve[i]!);
+      const refined = refineMaximum(at, grid[i - 1]!, grid[i]!, grid[i + 1]!, curve[i - 1]!, curve[i]!, curve[i + 1]!);
       const [p, q] = evaluator.pairs[k]!;
       peaks.push({ pair: `${p}-${q}`, order: refined.h, impedanceOhm: refined.value });
     }

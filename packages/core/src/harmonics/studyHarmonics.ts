@@ -16,7 +16,7 @@ import { addInstalledBank, ordersPresent, resolveHarmonicModel, stateKey, type B
 import { solveAtOrder } from './networkAtOrder.js';
 import { readLines, readLineToLine, readNeutral, type OrderSolution } from './readHarmonics.js';
 import { combinationLabel, scanResonance, stepCombinations } from './scanResonance.js';
-import { CONTINUOUS_VOLTAGE_PU, DUTY_LIMITS, dutyCase, dutyRatio } from './capacitorDuty.js';
+import { CONTINUOUS_VOLTAGE_PU, DUTY_LIMITS, dutyCase, dutyRatio, type DutyOrder } from './capacitorDuty.js';
 import { conditionWords, dutyConditions, withCapacitanceFactor, withLoadsOff } from './dutyConditions.js';
 import { IEEE_519_SOURCE, ieee519OrderLimit, ieee519Row } from './ieee519.js';
 import { checkVoltageDistortion } from './voltageDistortion.js';
@@ -118,7 +118,7 @@ export type SwitchedOtherBanks = (steps: readonly boolean[]) => readonly { reado
  * every load off when `loadsOff`: the whole installation where the board has a place in one, with
  * every other board's bank as `others` sets it.
  */
-export type DutySolver = (board: Board, model: HarmonicModel, loadsOff: boolean, others: OtherBanksSetting) => OrderSolution[];
+export type DutySolver = (board: Board, model: HarmonicModel, loadsOff: boolean, others: OtherBanksSetting) => DutyOrder[];
 
 /** The duty solver of a single board: every state through `networks`, its states changing load powers only. */
 const boardDutySolver =
@@ -156,7 +156,7 @@ export function capacitorDuty(board: Board, model: HarmonicModel, solveOrders: D
       const at = withCapacitanceFactor(withState, model, condition.capacitancePercent / 100);
       const setting: OtherBanksSetting = condition.otherBanks === 'switched' ? { partsOff: partsOff.get(condition.otherBanksState!)! } : condition.otherBanks === 'off' ? 'off' : 'on';
       const orders = solveOrders(at.board, at.model, condition.loads === 'off', setting);
-      const c = dutyCase(orders, at.model.bank!, steps, combinationLabel(bank, steps), limits, condition);
+      const c = dutyCase(at.board, orders, at.model.bank!, steps, combinationLabel(bank, steps), limits, condition);
       if (!c) continue;
       if (condition.capacitancePercent === 100 && condition.loads === 'as given' && (condition.otherBanks === undefined || condition.otherBanks === 'on')) nominalCases.push(c);
       highestCapacitorVoltageV = Math.max(highestCapacitorVoltageV, c.capacitorVoltageV);

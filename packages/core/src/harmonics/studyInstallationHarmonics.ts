@@ -23,6 +23,7 @@ import { addInstalledBank, ordersPresent, resolveHarmonicModel, type BankModel, 
 import type { HarmonicLoadSpec, InstallationHarmonicsSectionSpec } from './harmonicsSpec.js';
 import type { BoardHarmonics, BoardScan, HarmonicsWarning, InstallationHarmonicsReport, InstallationHarmonicsWarning, JointScan, OtherBankLevel, ResonanceScan } from './harmonicsResult.js';
 import { solveInstallationAtOrder } from './installationAtOrder.js';
+import { installationDutyOrders } from './installationDutyOrders.js';
 import { readLines, readLineToLine, type OrderSolution } from './readHarmonics.js';
 import { combinationLabel, scanResonance } from './scanResonance.js';
 import { createInstallationScanEvaluator } from './scanEvaluator.js';
@@ -77,12 +78,14 @@ const bankPartsOf = (models: readonly HarmonicModel[]) => models.map((m) => (m.b
  * nothing, they are not removed), so at each order the circuits repeat and `networks` compiles each once.
  */
 function installationDutySolver(models: readonly HarmonicModel[], b: number, networks: CompiledNetworkCache, solve?: SolveOptions): DutySolver {
+  const solveStates = installationDutyOrders(networks, solve);
+  // A state's model differs in its bank's capacitance only, not in what any load injects or the supply carries.
+  const orders = ordersOf(models);
   return (board, model, loadsOff, others) => {
     const { installation } = installationOf(board);
     const at = models.map((m, i) => (i === b ? model : m));
     const switched = others === 'on' ? installation : others === 'off' ? withOtherBanksOff(installation, bankPartsOf(models), b) : withPartsOff(installation, others.partsOff);
-    const { fundamental, solved } = solveOrders(loadsOff ? withInstallationLoadsOff(switched) : switched, at, networks, solve);
-    return boardOrders(b, fundamental, solved);
+    return solveStates(loadsOff ? withInstallationLoadsOff(switched) : switched, at, orders, b);
   };
 }
 
@@ -271,7 +274,7 @@ export function analyseInstallationHarmonics({ installation, models, bankBoards 
   const scans = scanned.map((b): BoardScan => {
     const evaluator = createInstallationScanEvaluator(fundamental, models, b);
     const scan = scanResonance(fundamental.boards[b]!, models[b]!, { ...checked, ...(options.scanOrders ? { grid: options.scanOrders } : {}) }, evaluator);
-    const jointScan = scanJointResonance(fundamental, models, evaluator, { grid: scan.orders, checkedOrders: scan.checkedOrders, ...(options.jointStateLimit !== undefined ? { stateLimit: options.jointStateLimit } : {}) });
+    const jointScan = scanJointResonance(fundamental, models, evaluator, { grid: scan.orders, checkedOrders: scan.checkedOrders, scan, ...(options.jointStateLimit !== undefined ? { stateLimit: options.jointStateLimit } : {}) });
     const duty = capacitorDuty(fundamental.boards[b]!.board, models[b]!, installationDutySolver(models, b, networks, options.solve), bankBoards.length > 1, jointScan ? switchedOtherBanks(jointScan, names, models) : undefined);
     warnings.push(...harmonicsWarnings({ scan, neutral: null, voltageDistortion: null, duty, tdd: null }, label).map((w) => ({ ...w, board: names[b]! })));
     if (jointScan) warnings.push(...jointResonanceWarnings(names[b]!, scan, jointScan).map((w) => ({ ...w, board: names[b]! })));

@@ -1169,8 +1169,11 @@ export class CompiledNetwork {
   }
 }
 
-/** Per node, 1 where it has a path of conducting elements, sources or non-zero-power branches to the reference. */
-export function liveNodes(circuit: Circuit): Uint8Array {
+/**
+ * Per node, 1 where it has a path of conducting elements, sources or non-zero-power branches to the reference.
+ * @param powers the branches' powers in place of the circuit's own (a circuit met again with other powers)
+ */
+export function liveNodes(circuit: Circuit, powers?: readonly ComplexValue[]): Uint8Array {
   const n = circuit.nodeNames.length;
   const adjacency: number[][] = [];
   for (let v = 0; v <= n; v++) adjacency.push([]);
@@ -1181,7 +1184,10 @@ export function liveNodes(circuit: Circuit): Uint8Array {
   };
   for (const e of circuit.elements) link(e.from, e.to);
   for (const s of circuit.sources) link(s.plus, s.minus);
-  for (const b of circuit.branches) if (b.sNominal.re !== 0 || b.sNominal.im !== 0) link(b.from, b.to);
+  circuit.branches.forEach((b, k) => {
+    const s = powers ? powers[k]! : b.sNominal;
+    if (s.re !== 0 || s.im !== 0) link(b.from, b.to);
+  });
   const seen = new Uint8Array(n + 1);
   const stack = [n];
   seen[n] = 1;

@@ -20,6 +20,7 @@
  * powers written in, and every solve starts from nominal, whatever the network solved
  * before.
  */
+import type { ComplexValue } from '../complex.js';
 import type { Installation } from '../board/boardModel.js';
 import type { Circuit } from './circuit.js';
 import { compileCircuit, liveNodes, type CompiledNetwork } from './compiledNetwork.js';
@@ -33,10 +34,13 @@ import type { CompiledInstallation } from './solveNetwork.js';
  */
 const MAX_KEPT = 256;
 
-/** Which nodes are live, one character each: the part of a compile that follows the branch powers. */
-function liveKey(circuit: Circuit): string {
+/**
+ * Which nodes are live, one character each: the part of a compile that follows the branch powers.
+ * @param powers the branches' powers in place of the circuit's own
+ */
+export function liveKey(circuit: Circuit, powers?: readonly ComplexValue[]): string {
   let key = '';
-  for (const live of liveNodes(circuit)) key += live ? '1' : '0';
+  for (const live of liveNodes(circuit, powers)) key += live ? '1' : '0';
   return key;
 }
 
@@ -82,6 +86,14 @@ export function sameLoadFlowNetwork(a: Circuit, b: Circuit): boolean {
   return true;
 }
 
+/** A network as a compile leaves it for `solveLinear`: no branch admittances, no injections. */
+function clearForLinearSolve(network: CompiledNetwork): void {
+  network.admittanceRe.fill(0);
+  network.admittanceIm.fill(0);
+  network.injectionRe.fill(0);
+  network.injectionIm.fill(0);
+}
+
 /** Compiled networks found again by their circuit (see the module comment). */
 export class CompiledNetworkCache {
   /** Networks by their live nodes; each list holds circuits that differ otherwise (e.g. by harmonic order). */
@@ -97,12 +109,18 @@ export class CompiledNetworkCache {
    * or a new compile.
    */
   compileForLinearSolve(installation: Installation): CompiledInstallation {
-    return this.laidOut(installation, sameLinearNetwork, (found) => {
-      found.admittanceRe.fill(0);
-      found.admittanceIm.fill(0);
-      found.injectionRe.fill(0);
-      found.injectionIm.fill(0);
-    });
+    return this.laidOut(installation, sameLinearNetwork, clearForLinearSolve);
+  }
+
+  /**
+   * A network `compileForLinearSolve` gave, handed back for another linear solve of a circuit the
+   * caller knows to be equal to the one it was compiled for (so nothing is laid out or compared):
+   * admittances and injections cleared.
+   */
+  againForLinearSolve(compiled: CompiledInstallation): CompiledInstallation {
+    clearForLinearSolve(compiled.network);
+    this.reused++;
+    return compiled;
   }
 
   /**
@@ -119,6 +137,25 @@ export class CompiledNetworkCache {
         found.powerIm[k] = b.sNominal.im;
       });
     });
+  }
+
+  /**
+   * A network `compileForLoadFlow` gave, handed back for the load flow of `installation`, which the
+   * caller knows to lay out as the one it was compiled for but for its branch powers (`powers`, in
+   * circuit order) and to have the same live nodes: injections cleared, the powers written in. The
+   * layout is the earlier installation's (the same nodes, elements, sources and branch ends).
+   */
+  againForLoadFlow(compiled: CompiledInstallation, installation: Installation, powers: readonly ComplexValue[]): CompiledInstallation {
+    const network = compiled.network;
+    if (powers.length !== network.branchCount) throw new RangeError(`againForLoadFlow: ${network.branchCount} branch powers expected (received ${powers.length})`);
+    network.injectionRe.fill(0);
+    network.injectionIm.fill(0);
+    powers.forEach((s, k) => {
+      network.powerRe[k] = s.re;
+      network.powerIm[k] = s.im;
+    });
+    this.reused++;
+    return { installation, layout: compiled.layout, network };
   }
 
   /** The installation's circuit with a kept network `same` accepts, made ready by `reset`, or a new compile. */

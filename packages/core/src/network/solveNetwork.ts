@@ -140,18 +140,22 @@ export interface CircuitState {
   readonly branchSources?: readonly (ComplexValue | null)[];
 }
 
-/** Reads a solved circuit state board by board: line, neutral and branch currents in each board's terms. */
-export function readInstallationSolution(installation: Installation, layout: InstallationCircuit, state: CircuitState): InstallationSolution {
+const loadsOf = (installation: Installation, b: number) => (b === 0 ? installation.main.loads : installation.subBoards[b - 1]!.loads);
+
+/**
+ * Every load branch of a solved circuit state, per board, per load: voltage, current, admittance
+ * (the part of `readInstallationSolution` a harmonic order starts from).
+ */
+export function readBranchStates(installation: Installation, layout: InstallationCircuit, state: Pick<CircuitState, 'nodeVoltages' | 'admittances' | 'branchSources'>): BranchState[][][] {
   const { nodeVoltages } = state;
   const live = (node: number) => node === REFERENCE || nodeVoltages[node] !== null;
   const at = (node: number): ComplexValue => (node === REFERENCE ? ZERO : (nodeVoltages[node] ?? ZERO));
   const count = installation.subBoards.length + 1;
-  const loadsOf = (b: number) => (b === 0 ? installation.main.loads : installation.subBoards[b - 1]!.loads);
   const branchStates: BranchState[][][] = [];
   for (let b = 0; b < count; b++) {
     let k = layout.branchOffset[b]!;
     branchStates.push(
-      loadsOf(b).map((l) =>
+      loadsOf(installation, b).map((l) =>
         l.branches.map((): BranchState => {
           const admittance = state.admittances[k]!;
           const cb = layout.circuit.branches[k]!;
@@ -165,6 +169,15 @@ export function readInstallationSolution(installation: Installation, layout: Ins
       ),
     );
   }
+  return branchStates;
+}
+
+/** Reads a solved circuit state board by board: line, neutral and branch currents in each board's terms. */
+export function readInstallationSolution(installation: Installation, layout: InstallationCircuit, state: CircuitState): InstallationSolution {
+  const { nodeVoltages } = state;
+  const at = (node: number): ComplexValue => (node === REFERENCE ? ZERO : (nodeVoltages[node] ?? ZERO));
+  const count = installation.subBoards.length + 1;
+  const branchStates = readBranchStates(installation, layout, state);
   const sourceCurrents = state.sourceCurrents;
   const phases = installation.main.phases;
   const hasNeutral = installation.main.hasNeutral;
@@ -179,7 +192,7 @@ export function readInstallationSolution(installation: Installation, layout: Ins
     const b = layout.order[o]!;
     const own = (terminal: Terminal) => {
       let total = ZERO;
-      loadsOf(b).forEach((l, li) =>
+      loadsOf(installation, b).forEach((l, li) =>
         l.branches.forEach((br, bi) => {
           const i = branchStates[b]![li]![bi]!.current;
           if (br.from === terminal) total = add(total, i);
