@@ -119,6 +119,12 @@ describe('correct report wording', () => {
     const unity = correctBoard(board, { arrangement: 'star-bank', target: { pf: 1 } });
     expect(unity.status).toBe('misses-target-with-available-units');
     expect(reason(unity)).toContain('(PF 1.000 and never leading)');
+    // With leading allowed the leading limit defaults to the target: the words say that, not "never leading".
+    const leading = correctBoard(board, { arrangement: 'star-bank', target: { pf: 1, leading: 'allowed' } });
+    expect(leading.status).toBe('misses-target-with-available-units');
+    expect(reason(leading)).toContain('with leading allowed no further than PF 1.000 leading');
+    expect(reason(leading)).not.toContain('never leading');
+    expect(leading.warnings.map((w) => w.message).join(' ')).not.toContain('no-leading limit');
     // The same board with room in the band meets it, and the reason is not given.
     const room = correctBoard(board, { arrangement: 'star-bank', target: { pf: 0.95, maxLaggingPf: 0.99 } });
     expect(['meets-target', 'meets-target-at-nominal-capacitance']).toContain(room.status);

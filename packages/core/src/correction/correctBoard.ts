@@ -252,7 +252,7 @@ export function correctBoard(board: Board, spec: unknown): CorrectionReport {
     status = 'misses-target-with-available-units';
     reasons.push(infeasibleReason.unitsMissTarget([...verification.check.shortfalls, ...(balance?.shortfalls ?? [])]));
     const pinned = widthlessTargetPf(target);
-    if (pinned !== null) reasons.push(infeasibleReason.widthlessTarget(pinned));
+    if (pinned !== null) reasons.push(infeasibleReason.widthlessTarget(pinned, target.leading === 'allowed'));
     // Rounded down beside the reactors (kept at their continuous values the capacitors may not pass their
     // requirement: the balance would tip), the small net compensation shrinks; rounded up did no better.
     const reactorKvar = sized.branches.reduce((sum, b) => sum + (b.element === 'reactor' ? -b.kvarAtAppliedV : 0), 0);

@@ -106,8 +106,10 @@ export const infeasibleReason = {
     return `${head}; the net compensation, capacitors less the ${reactor.toFixed(2)} kvar of reactors, falls from ${(ideal - reactor).toFixed(2)} to ${(built - reactor).toFixed(2)} kvar${tried}`;
   },
   unitsMissTarget: (shortfalls: readonly string[]) => `with the units chosen the corrected board misses the target: ${shortfalls.join('; ')}`,
-  widthlessTarget: (pf: number) =>
-    `the target leaves no band to land in (${pf >= 1 ? 'PF 1.000 and never leading' : `PF at least and at most ${f3(pf)} lagging`}): units come in fixed sizes and a bank switches in steps, so a build meets it only by chance; give a lower PF target${pf >= 1 ? '' : ' or a higher upper bound'}`,
+  widthlessTarget: (pf: number, leadingAllowed: boolean) =>
+    `the target leaves no band to land in (${
+      leadingAllowed ? 'PF 1.000, and with leading allowed no further than PF 1.000 leading: the leading limit is the target unless target.minLeadingPf is given' : pf >= 1 ? 'PF 1.000 and never leading' : `PF at least and at most ${f3(pf)} lagging`
+    }): units come in fixed sizes and a bank switches in steps, so a build meets it only by chance; give a lower PF target${leadingAllowed ? ' or a lower target.minLeadingPf' : pf >= 1 ? '' : ' or a higher upper bound'}`,
 };
 
 /** What the wording needs of a reactor re-sizing (see ReactorResizing). */
@@ -122,17 +124,22 @@ export const reactorChanges = (reactors: ResizingWords['reactors']) =>
     .map((r) => `${r.branch} ${r.sizedKvar.toFixed(2)} → ${r.resizedKvar.toFixed(2)} kvar`)
     .join(', ');
 
+/** The bound a bank's units must stay within on the leading side, in words, by how the target bounds it. */
+export const NO_LEADING_LIMIT = 'no-leading limit';
+export const limitWords = (target: { readonly leading?: string | undefined; readonly maxLaggingPf?: number | undefined }): string =>
+  target.leading === 'allowed' ? 'leading limit' : target.maxLaggingPf !== undefined ? 'upper PF bound' : NO_LEADING_LIMIT;
+
 export const warningText = {
   reactorsResized: (reactors: ResizingWords['reactors']) =>
     `the reactors were sized again beside the capacitors as built from units (${reactorChanges(reactors)} at nominal voltage): the build verified here has the re-sized reactors`,
   alreadyMet: 'the board already meets the target: nothing to add',
   unitFrequency: (name: string, ratedHz: number, hz: number) =>
     `unit "${name}" is rated for ${ratedHz} Hz and used at ${hz} Hz: its output and current scale by ${f3(hz / ratedHz)}`,
-  unitsBelowTarget: (branch: PhaseLabel) =>
-    `branch ${branch}: the units cannot reach the requirement without passing the no-leading limit; the design stays below the limit and short of the target`,
-  unitsPastLimit: (branch: PhaseLabel) => `branch ${branch}: no build of the available units stays within the no-leading limit; the smallest that reaches the target is used`,
-  windowMissed: (branch: PhaseLabel) =>
-    `branch ${branch}: no combination of units guarantees the target at the lowest capacitance tolerance without exceeding the no-leading limit at the highest; the choice meets the target at nominal capacitance`,
+  unitsBelowTarget: (branch: PhaseLabel, limit: string = NO_LEADING_LIMIT) =>
+    `branch ${branch}: the units cannot reach the requirement without passing the ${limit}; the design stays below the limit and short of the target`,
+  unitsPastLimit: (branch: PhaseLabel, limit: string = NO_LEADING_LIMIT) => `branch ${branch}: no build of the available units stays within the ${limit}; the smallest that reaches the target is used`,
+  windowMissed: (branch: PhaseLabel, limit: string = NO_LEADING_LIMIT) =>
+    `branch ${branch}: no combination of units guarantees the target at the lowest capacitance tolerance without exceeding the ${limit} at the highest; the choice meets the target at nominal capacitance`,
   toleranceLow: (shortfalls: readonly string[]) => `with capacitance at the low end of its tolerance the target is missed: ${shortfalls.join('; ')}`,
   toleranceHigh: (phases: readonly PhaseLabel[]) => `with capacitance at the high end of its tolerance line${phases.length > 1 ? 's' : ''} ${phases.join(', ')} lead`,
   lightLoadLeading: (phases: readonly PhaseLabel[]) =>

@@ -27,7 +27,7 @@ import { CORRECTION_DEFAULTS, toleranceFractions } from './correctionDefaults.js
 import { TYPICAL_CATALOGUES, catalogueUnitOf, type CatalogueUnit } from './unitCatalogues.js';
 import type { EquipmentBranch, EquipmentGroup } from './equipment.js';
 import type { BankSelection, BankSizing, BankStep, BranchSelection, CorrectionWarning, SelectedUnit, SizedEquipment, UnbuildableBranches } from './correctionResult.js';
-import { selectionWording, warningText } from './correctionWording.js';
+import { limitWords, selectionWording, warningText } from './correctionWording.js';
 import { parseOptions } from '../_internal/zodIssues.js';
 import { labellerOf, PHASE_NAMINGS, type PhaseNaming } from '../board/conventions/phaseNames.js';
 import { firstFit, searchSet, shortOfTarget, type Need, type SetBuild, type UnitChoice } from './_internal/bankSearch.js';
@@ -274,9 +274,10 @@ export function selectBankUnits(sized: SizedEquipment, options?: SelectBankUnits
     build.tiers.forEach((tier, k) => {
       if (uncovered.includes(set.indices[k]!)) return;
       const name = names[k]!;
-      if (tier === 1 || tier === 2) warn('tolerance-window', warningText.windowMissed(name));
-      if (shortOfTarget(tier) && build.needs[k]!.minF > 0) warn('units-below-target', warningText.unitsBelowTarget(name));
-      if (tier === 5) warn('units-past-limit', warningText.unitsPastLimit(name));
+      const limit = limitWords(opts.target ?? {});
+      if (tier === 1 || tier === 2) warn('tolerance-window', warningText.windowMissed(name, limit));
+      if (shortOfTarget(tier) && build.needs[k]!.minF > 0) warn('units-below-target', warningText.unitsBelowTarget(name, limit));
+      if (tier === 5) warn('units-past-limit', warningText.unitsPastLimit(name, limit));
     });
     if (build.violations.outputs) warn('outputs-short', warningText.outputsShort(names, outputsPerSet), 'controller.outputs', outputs, null);
     if (build.violations.minStep) warn('step-below-minimum', warningText.stepBelowMinimum(names, minStepKvar), 'bank.minStepKvar', null, minStepKvar);
