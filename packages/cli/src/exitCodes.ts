@@ -12,7 +12,7 @@ export const EXIT = {
   input: 3,
   /** The board is valid but has no solution (singular network, loads beyond what the supply can deliver). */
   numerical: 4,
-  /** `trivar correct` ran, but the target cannot be met with the allowed equipment (the report says why). */
+  /** `trivar correct` ran, but the target cannot be met with the allowed equipment, or what meets it fails the harmonic check (the report says why). */
   targetNotMet: 5,
   /** The output could not be written (a full disk, a closed file); a reader closing a pipe early is not an error (exit 0). */
   output: 6,

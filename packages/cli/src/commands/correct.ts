@@ -18,10 +18,11 @@ export interface CorrectCommandOptions extends CorrectStudyOptions {
 /** What `trivar correct` produced: one arrangement's report, or every arrangement compared. */
 export type CorrectOutcome = { readonly kind: 'single'; readonly report: CorrectionReport } | { readonly kind: 'comparison'; readonly comparison: CorrectionComparison };
 
-/** True when the outcome meets the target (exit 0), false for exit 5. */
+/** True when the outcome meets the target (exit 0), false for exit 5 (also where what meets it fails the harmonic check). */
 export function outcomeMeetsTarget(outcome: CorrectOutcome): boolean {
   if (outcome.kind === 'comparison') return outcome.comparison.meetsTarget;
   const s = outcome.report.status;
+  if (outcome.report.warnings.some((w) => w.code === 'harmonic-check-failed')) return false;
   return s !== 'infeasible' && s !== 'misses-target-with-available-units' && s !== 'no-suitable-units';
 }
 

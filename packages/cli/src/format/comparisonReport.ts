@@ -1,6 +1,6 @@
 /** CorrectionComparison → the side-by-side report of `trivar correct` without an arrangement (fits 100 columns). */
 import { boundFigure } from './correctionReport.js';
-import { arrangementNames, type Arrangement, type ArrangementOutcome, type CorrectionComparison, signedPfText } from '@trivar/core';
+import { arrangementNames, type Arrangement, type ArrangementOutcome, type CorrectionComparison, type HarmonicComparison, signedPfText } from '@trivar/core';
 import { fixed, renderTable, section } from './textTable.js';
 import { headerLines } from './solveReport.js';
 import { renderCorrectionReport, renderNothingToAdd } from './correctionReport.js';
@@ -36,7 +36,13 @@ const VERDICT: Record<string, string> = {
 /** Meets the target while it overloads what feeds the board (see compareCorrections' rule). */
 const overloading = (o: ArrangementOutcome): boolean => !!o.report && o.report.status.startsWith('meets') && o.report.verification.overloadsCaused.length > 0;
 
-function row(o: ArrangementOutcome, names: Readonly<Record<Arrangement, string>>): string[] {
+/** Arrangements that meet the target but fail the harmonic check in every variant (a comparison with harmonic data). */
+function failingHarmonicCheck(c: CorrectionComparison): ReadonlySet<Arrangement> {
+  const arrangements = (c as Partial<HarmonicComparison>).harmonics?.arrangements ?? [];
+  return new Set(arrangements.filter((a) => a.chosen === null && a.variants.length > 0).map((a) => a.arrangement));
+}
+
+function row(o: ArrangementOutcome, names: Readonly<Record<Arrangement, string>>, failsCheck: ReadonlySet<Arrangement> = new Set()): string[] {
   const name = names[o.arrangement] ?? o.arrangement;
   if (!o.report || !o.figures) return [name, 'not applicable', '', '', '', '', '', '', '', ''];
   const f = o.figures;
@@ -45,7 +51,7 @@ function row(o: ArrangementOutcome, names: Readonly<Record<Arrangement, string>>
   const partBuilt = built && o.report.status === 'no-suitable-units';
   return [
     name,
-    partBuilt ? 'part built' : overloading(o) ? 'overloads' : (VERDICT[o.report.status] ?? o.report.status),
+    partBuilt ? 'part built' : failsCheck.has(o.arrangement) && o.report.status.startsWith('meets') ? 'fails check' : overloading(o) ? 'overloads' : (VERDICT[o.report.status] ?? o.report.status),
     built ? fixed(f.deliveredKvar, 1) + (f.reactorKvar > 0 ? `+L${fixed(f.reactorKvar, 1)}` : '') : '-',
     built ? fixed(f.nameplateKvar, 1) : '-',
     built ? String(f.units) : '-',
@@ -58,6 +64,7 @@ function row(o: ArrangementOutcome, names: Readonly<Record<Arrangement, string>>
 }
 
 export function renderComparisonReport(c: CorrectionComparison): string {
+  const failing = failingHarmonicCheck(c);
   const first = c.outcomes.find((o) => o.report)?.report;
   const system = comparedSystem(c);
   const names = tableNames(system);
@@ -87,11 +94,11 @@ export function renderComparisonReport(c: CorrectionComparison): string {
           { header: 'I2/I1 %' },
           { header: 'loss kW' },
         ],
-        c.outcomes.map((o) => row(o, names)),
+        c.outcomes.map((o) => row(o, names, failing)),
       ) +
       '\n' +
       [
-        `${names['star-bank'] === TWO_LINE_TABLE_NAMES['star-bank'] ? `${TWO_LINE_LEGEND}; ` : ''}delivered: kvar at the solved voltage (+L: reactor kvar); nom C: at nominal capacitance only;${c.outcomes.some((o) => o.report?.status === 'no-suitable-units' && (o.report.selection?.units ?? 0) > 0) ? ' part built: no unit suits some branches, the rest built without them;' : ''}${c.outcomes.some(overloading) ? ' overloads: meets the target, but with it in a conductor or the supply is above its rating (see Recommendation);' : ''} plate: nameplate kvar; PF after: the PF the target is defined on (per-line: the lowest line); neutral: A after; loss: source + feeder after`,
+        `${names['star-bank'] === TWO_LINE_TABLE_NAMES['star-bank'] ? `${TWO_LINE_LEGEND}; ` : ''}delivered: kvar at the solved voltage (+L: reactor kvar); nom C: at nominal capacitance only;${c.outcomes.some((o) => o.report?.status === 'no-suitable-units' && (o.report.selection?.units ?? 0) > 0) ? ' part built: no unit suits some branches, the rest built without them;' : ''}${c.outcomes.some(overloading) ? ' overloads: meets the target, but with it in a conductor or the supply is above its rating (see Recommendation);' : ''}${failing.size ? ' fails check: meets the target, but no variant passes the harmonic check;' : ''} plate: nameplate kvar; PF after: the PF the target is defined on (per-line: the lowest line); neutral: A after; loss: source + feeder after`,
         ...c.outcomes.filter((o) => o.notApplicable).map((o) => `${arrangementNames(system)[o.arrangement]}: ${o.notApplicable}`),
       ]
         .map((l) => wrapText(l, '  ', '    '))

@@ -18,7 +18,12 @@ const STATUS_WORDS: Record<string, string> = {
 /** The verdict in capitals: a build that meets the target while it overloads what it is connected to says both. */
 function headline(r: CorrectionReport): string {
   const words = r.status === 'no-suitable-units' && (r.selection?.units ?? 0) > 0 ? 'NO SUITABLE UNITS for part of this arrangement' : (STATUS_WORDS[r.status] ?? r.status);
-  return r.verification.overloadsCaused.length && r.status.startsWith('meets') ? `${words}, BUT OVERLOADS WHAT FEEDS IT` : words;
+  if (!r.status.startsWith('meets')) return words;
+  const buts = [
+    ...(r.verification.overloadsCaused.length ? ['OVERLOADS WHAT FEEDS IT'] : []),
+    ...(r.warnings.some((w) => w.code === 'harmonic-check-failed') ? ['FAILS THE HARMONIC CHECK'] : []),
+  ];
+  return buts.length ? `${words}, BUT ${buts.join(' AND ')}` : words;
 }
 
 const arrow = (x: BeforeAfter, digits: number, unit = '') => `${fixed(x.before, digits)}${unit} → ${fixed(x.after, digits)}${unit}`;

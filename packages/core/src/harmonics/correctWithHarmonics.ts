@@ -384,8 +384,16 @@ export function correctWithBankCheck<Check>(
       ? 'the plain bank passes the harmonic check: no detuning needed'
       : `the plain bank fails the harmonic check (${why(plain)}); chosen: ${chosen.summary.name} (tuned to h = ${chosen.summary.tuningOrder!.toFixed(2)}, ${chosen.summary.unitRatedV?.toFixed(0)} V capacitors)${third ? '; 14 % is tried first because the third harmonic is significant' : ''}`
     : `no variant passes the harmonic check (${runs.map((v) => `${v.summary.name}: ${why(v)}`).join(' | ')}): a tuned filter or a specialist harmonic study is needed; the plain bank is shown`;
+  // A bank that meets the target but fails the harmonic check in every variant is not one to install:
+  // the verdict's summary and the warnings say so beside the figures (the check itself is below them).
+  const failsCheck = chosen === null && shown.report.selection !== null && (shown.report.selection.units ?? 0) > 0;
+  const failure = `no variant passes the harmonic check (${runs.map((v) => `${v.summary.name}: ${why(v)}`).join(' | ')})`;
   return {
     ...shown.report,
+    summary: failsCheck ? `${shown.report.summary}; but it fails the harmonic check: ${failure}` : shown.report.summary,
+    warnings: failsCheck
+      ? [...shown.report.warnings, { code: 'harmonic-check-failed', message: `${failure}: do not install it as built; a tuned filter or a specialist harmonic study is needed`, path: null, value: null, threshold: null }]
+      : shown.report.warnings,
     cautions: shown.report.cautions.map((c) => (c === HARMONICS_NOT_CHECKED ? harmonicsChecked(wording.file) : c)),
     harmonics: {
       summary,

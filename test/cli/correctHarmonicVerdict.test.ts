@@ -1,0 +1,34 @@
+/**
+ * A bank that meets the power-factor target but fails the harmonic check in every variant is not one
+ * to install: the verdict line, the warnings and the exit code (5) say so, and a comparison's table
+ * shows it as "fails check" — not "MEETS THE TARGET", "Warnings none" and exit 0 with the failure
+ * only at the foot of the report.
+ */
+import { describe, expect, it } from 'vitest';
+import { runTrivar } from './runTrivar.js';
+
+const offices = 'examples/mill-street-offices.yaml';
+
+describe('correct where no variant passes the harmonic check', () => {
+  it('one arrangement: the verdict and a warning say it fails the check, exit 5', () => {
+    const r = runTrivar(['correct', offices, '--arrangement', 'balancing-compensator']);
+    expect(r.code).toBe(5);
+    expect(r.stdout).toMatch(/^MEETS THE TARGET, BUT FAILS THE HARMONIC CHECK — balancing compensator/m);
+    const warnings = r.stdout.slice(r.stdout.indexOf('\nWarnings\n'), r.stdout.indexOf('\nCautions\n')).replace(/\n {4}/g, ' ');
+    expect(warnings).toMatch(/! no variant passes the harmonic check \(plain: .*\): do not install it as built/);
+    const json = JSON.parse(runTrivar(['correct', offices, '--arrangement', 'balancing-compensator', '--json']).stdout) as { status: string; warnings: { code: string }[]; harmonics: { chosen: string | null } };
+    expect(json.status).toBe('meets-target');
+    expect(json.harmonics.chosen).toBeNull();
+    expect(json.warnings.map((w) => w.code)).toContain('harmonic-check-failed');
+  }, 120_000);
+
+  it('a comparison: the row reads "fails check", and an arrangement that passes is recommended (exit 0)', () => {
+    const r = runTrivar(['correct', offices]);
+    expect(r.code).toBe(0);
+    expect(r.stdout).toMatch(/^ {2}compensator +fails check /m);
+    expect(r.stdout).toMatch(/^ {2}delta bank +meets /m);
+    expect(r.stdout).toContain('fails check: meets the target, but no variant passes the harmonic check');
+    // The recommended bank passes: its own verdict has no "BUT".
+    expect(r.stdout).toMatch(/^MEETS THE TARGET — delta bank with 14 % detuning reactors/m);
+  }, 120_000);
+});
