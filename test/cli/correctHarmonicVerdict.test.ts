@@ -32,3 +32,19 @@ describe('correct where no variant passes the harmonic check', () => {
     expect(r.stdout).toMatch(/^MEETS THE TARGET — delta bank with 14 % detuning reactors/m);
   }, 120_000);
 });
+
+describe('the variant table', () => {
+  it("a star bank's capacitor voltage is line-to-neutral / (1 − p), also for a variant no unit suits; reasons are words, not status codes", () => {
+    const r = runTrivar(['correct', offices, '--arrangement', 'star-bank', '--json']);
+    const variants = (JSON.parse(r.stdout) as { harmonics: { variants: { name: string; capacitorVoltageV: number; reasons: string[] }[] } }).harmonics.variants;
+    const ln = 400 / Math.sqrt(3);
+    for (const v of variants) {
+      const p = v.name === 'plain' ? 0 : Number(/([\d.]+) %/.exec(v.name)![1]) / 100;
+      expect(v.capacitorVoltageV, v.name).toBeCloseTo(ln / (1 - p), 1);
+      for (const reason of v.reasons) expect(reason).not.toMatch(/"[a-z-]+"/);
+    }
+    const compensator = JSON.parse(runTrivar(['correct', offices, '--arrangement', 'balancing-compensator', '--json']).stdout) as { harmonics: { variants: { name: string; capacitorVoltageV: number }[] } };
+    // A compensator's delta branches set its highest capacitor voltage: 400 V / (1 − p).
+    expect(compensator.harmonics.variants.find((v) => v.name === 'plain')!.capacitorVoltageV).toBeCloseTo(400, 1);
+  }, 120_000);
+});

@@ -262,6 +262,13 @@ export function boardBankChecker(spec: HarmonicsBoardSpec, board: Board): BankCh
   };
 }
 
+/** Why a variant's correction study does not count as meeting the target, in words. */
+const UNMET_REASON: Partial<Record<CorrectionReport['status'], string>> = {
+  'no-suitable-units': 'no unit of the catalogue suits its capacitor voltage',
+  infeasible: 'it cannot reach the target in this arrangement',
+  'misses-target-with-available-units': 'the units available miss the target',
+};
+
 function variantOf<Check>(checkBank: BankChecker<Check>, board: Board, report: CorrectionReport, name: string, percent: number): VariantRun<Check> {
   const p = percent / 100;
   const checked = checkBank(report);
@@ -270,13 +277,16 @@ function variantOf<Check>(checkBank: BankChecker<Check>, board: Board, report: C
   const worstDutyRatio = duty ? dutyRatio(duty.worst.figures, duty.limits) : null;
   const met = report.status === 'meets-target' || report.status === 'meets-target-at-nominal-capacitance' || report.status === 'already-meets-target';
   const reasons = [
-    ...(met ? [] : [`the correction study ends "${report.status}"`]),
+    ...(met ? [] : [report.status === 'no-suitable-units' && (report.selection?.units ?? 0) > 0 ? 'no unit of the catalogue suits some of its branches (the rest is built)' : (UNMET_REASON[report.status] ?? 'the correction study does not meet the target')]),
     ...(resonantOrders.length ? [`a step combination resonates with the supply within ±10 % of order ${checked.resonanceWords ?? resonantOrders.join(', ')}`] : []),
     ...(switched?.length ? [`with the other banks switched a step combination resonates within ±10 % of order ${switched.map((s) => `${s.order} (${s.words})`).join(', ')}`] : []),
     ...(duty && !duty.ok ? [`the capacitors exceed their duty limits in some state${checked.dutyWords ? ` (${checked.dutyWords})` : ''}`] : []),
   ];
-  const bank = bankOfReport(board, report);
-  const elementV = bank?.model.elementNominalV ?? board.nominalLineToLineV ?? board.nominalLineToNeutralV;
+  // The capacitors' own nominal voltage: the highest over the branches built (a compensator has line-to-line
+  // and line-to-neutral ones); where nothing is built, the arrangement's (star: line-to-neutral).
+  const built = report.verification.equipment.flatMap((g) => g.branches).filter((b) => b.susceptanceS > 0);
+  const lineToLine = board.nominalLineToLineV ?? board.nominalLineToNeutralV;
+  const elementV = built.length ? Math.max(...built.map((b) => b.vNominal)) : report.sizing.arrangement === 'star-bank' ? board.nominalLineToNeutralV : lineToLine;
   const summary: CorrectionVariant = {
     name,
     detuningPercent: percent,
