@@ -29,7 +29,7 @@ describe('correct where no variant passes the harmonic check', () => {
     expect(r.stdout).toMatch(/^ {2}delta bank +meets /m);
     expect(r.stdout).toContain('fails check: meets the target, but no variant passes the harmonic check');
     // The recommended bank passes: its own verdict has no "BUT".
-    expect(r.stdout).toMatch(/^MEETS THE TARGET — delta bank with 14 % detuning reactors/m);
+    expect(r.stdout).toMatch(/^MEETS THE TARGET — star bank with 7 % detuning reactors/m);
   }, 120_000);
 });
 
@@ -46,5 +46,18 @@ describe('the variant table', () => {
     const compensator = JSON.parse(runTrivar(['correct', offices, '--arrangement', 'balancing-compensator', '--json']).stdout) as { harmonics: { variants: { name: string; capacitorVoltageV: number }[] } };
     // A compensator's delta branches set its highest capacitor voltage: 400 V / (1 − p).
     expect(compensator.harmonics.variants.find((v) => v.name === 'plain')!.capacitorVoltageV).toBeCloseTo(400, 1);
+  }, 120_000);
+});
+
+describe('the cost of a detuned bank', () => {
+  it('is its capacitors\' real nameplate, 2 per unit and its detuning reactors at twice their kvar, as its statement says', () => {
+    const r = JSON.parse(runTrivar(['correct', offices, '--arrangement', 'delta-bank', '--json']).stdout) as {
+      harmonics: { chosen: string };
+      selection: { nameplateKvar: number; units: number; steps: { detuningFactor: number }[]; cost: { value: number; statement: string } };
+    };
+    const p = r.selection.steps[0]!.detuningFactor;
+    expect(p).toBeGreaterThan(0);
+    expect(r.selection.cost.value).toBeCloseTo(r.selection.nameplateKvar + 2 * r.selection.units + 2 * p * r.selection.nameplateKvar, 9);
+    expect(r.selection.cost.statement).toContain(`the ${Math.round(100 * p)} % detuning reactors at 2 × their kvar`);
   }, 120_000);
 });

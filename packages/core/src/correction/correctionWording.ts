@@ -266,6 +266,9 @@ export const selectionWording = {
   },
   costStatement: (unitCostKvar: number) =>
     `least cost = nameplate kvar + ${unitCostKvar} kvar-equivalent per unit bought, among the builds that best fit the tolerance window, the controller outputs and the minimum step`,
+  /** The cost of a detuned bank: its capacitors' real nameplate and its detuning reactors, counted as a compensator's reactors are. */
+  detunedCostStatement: (unitCostKvar: number, percent: number, reactorFactor: number) =>
+    `cost = nameplate kvar of the capacitors + ${unitCostKvar} kvar-equivalent per unit bought + the ${percent} % detuning reactors at ${reactorFactor} × their kvar (${percent} % of the capacitors' nameplate); the units were chosen as their fundamental equivalents behind the reactors`,
 };
 
 const bankWords = (delivered: number, nameplate: number) => `${delivered.toFixed(2)} kvar delivered (${nameplate.toFixed(2)} kvar nameplate)`;

@@ -23,7 +23,8 @@ import { parseCorrectionSpec } from '../correction/validateCorrectionSpec.js';
 import { defaultPractice } from '../correction/selectBankUnits.js';
 import { TYPICAL_CATALOGUES, catalogueUnitOf } from '../correction/unitCatalogues.js';
 import type { BankStep, CorrectionReport, CorrectionWarning } from '../correction/correctionResult.js';
-import { arrangementNames, CORRECTION_CAUTIONS, reportSummary } from '../correction/correctionWording.js';
+import { arrangementNames, CORRECTION_CAUTIONS, reportSummary, selectionWording } from '../correction/correctionWording.js';
+import { CORRECTION_DEFAULTS } from '../correction/correctionDefaults.js';
 import type { CapacitorUnitSpec } from '../correction/correctionSpec.js';
 import { resolveHarmonicModel, type BankModel, type HarmonicModel } from './harmonicModel.js';
 import type { HarmonicsBoardSpec } from './harmonicsSpec.js';
@@ -164,6 +165,14 @@ function asDetuned(report: CorrectionReport, p: number, percent: number, plainSe
     detuningFactor: p,
   }));
   const nameplate = selection.nameplateKvar / (1 - p);
+  // Units were chosen as fundamental equivalents (kvar × (1 − p)), so their cost counted the equivalent's
+  // kvar; the bank bought has the real nameplate and a reactor of p × that behind each step (Q_L = p·Q_C).
+  const unitCostKvar = selection.cost.unitCostKvar;
+  const cost = {
+    statement: selectionWording.detunedCostStatement(unitCostKvar, percent, CORRECTION_DEFAULTS.reactorCostFactor),
+    unitCostKvar,
+    value: nameplate + unitCostKvar * selection.units + CORRECTION_DEFAULTS.reactorCostFactor * p * nameplate,
+  };
   const what = `${arrangementNames(report.verification.before.board.system)[report.arrangement]} with ${percent} % detuning reactors`;
   const summary =
     report.status === 'already-meets-target' || report.status === 'no-suitable-units'
@@ -180,6 +189,7 @@ function asDetuned(report: CorrectionReport, p: number, percent: number, plainSe
       ...(plainSelection ? { catalogue: plainSelection.catalogue, catalogueTitle: plainSelection.catalogueTitle, catalogueNote: plainSelection.catalogueNote } : {}),
       steps,
       nameplateKvar: nameplate,
+      cost,
       selections: selection.selections.map((b) => ({
         ...b,
         nameplateKvar: b.nameplateKvar / (1 - p),
