@@ -36,6 +36,8 @@ export const CORRECTION_DEFAULTS = {
    * keeps a controller from hunting (methods notes §10, from memory).
    */
   ckSettingFraction: 0.65,
+  /** A C/k setting below this (A, on the CT secondary) is finer than controllers usually resolve (common practice, no source). */
+  ckResolutionA: 0.02,
   /**
    * A unit must deliver at least this share of its nameplate at the nominal voltage
    * across it (the rating is chosen for the system, not for a board a few per cent

@@ -149,6 +149,10 @@ export const warningText = {
     `the bank and the supply inductance resonate near harmonic order ${order.toFixed(1)}: with harmonic-producing loads on the board this needs a harmonic study and probably a detuned bank`,
   partialBalance: (negative: number, zero: number, reactors: readonly PhaseLabel[]) =>
     `the capacitor-only compensator meets the power-factor target but balances only partly (|I2|/|I1| = ${negative.toFixed(1)} %, |I0|/|I1| = ${zero.toFixed(1)} %)${reactors.length ? `; full balance needs reactors on ${reactors.join(', ')}` : ''}`,
+  ctBelowLineCurrent: (primaryA: number, lineA: number) =>
+    `the CT primary (${primaryA} A) is below the largest line current (${lineA.toFixed(1)} A): the CT runs past its rating and saturates, and the controller misreads the reactive current; give controller.ctPrimaryA of at least ${Math.ceil(lineA)} A`,
+  ckBelowResolution: (settingA: number, resolutionA: number, chosen: boolean) =>
+    `the C/k setting (${settingA.toFixed(3)} A) is below about ${resolutionA} A, finer than controllers usually resolve (common practice, no source): ${chosen ? 'the smallest step is small for this CT' : 'a smaller CT primary'} or a larger smallest step brings it up`,
   outputsShort: (branches: readonly PhaseLabel[], outputs: number) =>
     `${branches.join(', ')}: no build fits in ${outputs} controller output${outputs === 1 ? '' : 's'}; steps were merged beyond what the controller allows`,
   stepBelowMinimum: (branches: readonly PhaseLabel[], minKvar: number) =>

@@ -405,6 +405,12 @@ export function selectBankUnits(sized: SizedEquipment, options?: SelectBankUnits
     band: { minPf: target.pf ?? CORRECTION_DEFAULTS.pf, maxPf: target.maxLaggingPf ?? null, leadingAllowed: target.leading === 'allowed' },
     perLine,
   });
+  // A CT given in the file or on the command line is checked against what it must read.
+  const lineCurrentA = opts.lineCurrentA ?? largestLineCurrent(sized);
+  if (controller && !ct.chosen && ct.primaryA < lineCurrentA)
+    warn('ct-below-line-current', warningText.ctBelowLineCurrent(ct.primaryA, lineCurrentA), 'controller.ctPrimaryA', ct.primaryA, lineCurrentA);
+  if (controller && controller.responseSettingA < CORRECTION_DEFAULTS.ckResolutionA)
+    warn('ck-below-resolution', warningText.ckBelowResolution(controller.responseSettingA, CORRECTION_DEFAULTS.ckResolutionA, ct.chosen), 'controller.ctPrimaryA', controller.responseSettingA, CORRECTION_DEFAULTS.ckResolutionA);
   const nameplateKvar = steps.reduce((s, st) => s + st.nameplateKvar, 0);
   const units = steps.reduce((s, st) => s + st.units, 0);
   return {
