@@ -55,7 +55,7 @@ function drawBoard(raw: unknown, view: DiagramView, options: DiagramCommandOptio
   const board = normaliseBoard(spec);
   if (view === 'triangles' || options.withCorrection) {
     if (!spec.correction) throw new UsageError(needsStudy(view));
-    const study = boardCorrection(board, spec.correction, optionName(view));
+    const study = boardCorrection(board, spec.correction, optionName(view), spec);
     assertDrawable(study, optionName(view));
     // A correction study refuses a collapsed board (exit 4) before anything is drawn.
     return studied(drawCorrected(study.report.verification.before, study.report.verification.after, view, study.recommended));

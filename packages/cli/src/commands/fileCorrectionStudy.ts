@@ -7,6 +7,10 @@
  */
 import {
   arrangementNames,
+  boardHasHarmonicData,
+  compareWithHarmonics,
+  correctWithHarmonics,
+  type BoardSpec,
   compareCorrections,
   compareInstallationCorrections,
   correctBoard,
@@ -45,9 +49,11 @@ function noneStudied(option: string, c: CorrectionComparison, system: string): U
 }
 
 /** The board file's correction study: the arrangement it names, or the one trivar correct recommends. */
-export function boardCorrection(board: Board, section: Record<string, unknown>, option: string): FileCorrection {
-  if (section.arrangement !== undefined) return { report: correctBoard(board, section), recommended: null };
-  const c = compareCorrections(board, section);
+export function boardCorrection(board: Board, section: Record<string, unknown>, option: string, spec?: BoardSpec): FileCorrection {
+  // A board with harmonic data gets the bank its harmonic check chooses (plain or detuned), as trivar correct and report give it.
+  const harmonic = spec !== undefined && boardHasHarmonicData(spec);
+  if (section.arrangement !== undefined) return { report: harmonic ? correctWithHarmonics(spec, board, section) : correctBoard(board, section), recommended: null };
+  const c = harmonic ? compareWithHarmonics(spec, board, section) : compareCorrections(board, section);
   const chosen = c.outcomes.find((o) => o.arrangement === c.recommended)?.report;
   if (!chosen) throw noneStudied(option, c, board.system);
   return { report: chosen, recommended: arrangementNames(board.system)[chosen.arrangement] };

@@ -71,7 +71,7 @@ export function designedBankOf(spec: ReturnType<typeof parseBoard>, board: Retur
     );
   let corrected;
   try {
-    corrected = boardCorrection(board, study, '--correction-bank');
+    corrected = boardCorrection(board, study, '--correction-bank', spec);
   } catch (error) {
     throw inFileSection(error);
   }
