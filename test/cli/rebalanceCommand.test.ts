@@ -156,6 +156,18 @@ describe('trivar rebalance (built binary)', () => {
     }
   });
 
+  it('--method exact --json: the method asked, the budget reached and the same notes as the text (it said local-search, no note)', () => {
+    const quay = 'examples/quay-street-flats.yaml';
+    const r = runTrivar(['rebalance', quay, '--method', 'exact', '--json']);
+    expect(r.code).toBe(0);
+    const report = JSON.parse(r.stdout) as ReturnType<typeof rebalanceBoard>;
+    expect([report.methodAsked, report.method, report.proven]).toEqual(['exact', 'exact', false]);
+    expect(report.search).toMatchObject({ nodeBudget: 2_000_000, budgetReached: true });
+    expect(report.search.nodes).toBeGreaterThan(2_000_000);
+    const note = 'The exact search stopped at its budget of 2,000,000 nodes; the answer is the best found and its gap comes from the lower bound.';
+    expect(report.notes).toContain(note);
+  });
+
   it('refuses to write over its input', () => {
     const r = runTrivar(['rebalance', flats, '--write', flats]);
     expect(r.code).toBe(2);

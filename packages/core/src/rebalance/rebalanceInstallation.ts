@@ -127,6 +127,8 @@ interface Answer {
   readonly lowerBound: number | null;
   readonly proven: boolean;
   readonly exactRan: boolean;
+  /** Branch-and-bound stopped at the node budget before it could prove this answer. */
+  readonly budgetReached: boolean;
   readonly nodes: number;
 }
 
@@ -170,11 +172,13 @@ function answerWithin({ p, single, termBound }: Search, limit: number, o: Resolv
   if (single !== null && !exactRan)
     best = searchMeetInMiddle(p, best, { quantity: single, moveLimit: limit, rounds: MEET_ROUNDS, size: MEET_SIZE, seed: o.seed, tie });
   let proven = false;
+  let budgetReached = false;
   let nodes = 0;
   if (exactRan) {
     const exact = searchExact(p, { moveLimit: limit, nodeBudget: o.nodeBudget, incumbent: best, tie });
     best = exact.best;
     proven = exact.complete;
+    budgetReached = !exact.complete;
     nodes = exact.nodes;
   }
   let lowerBound: number | null = null;
@@ -187,7 +191,7 @@ function answerWithin({ p, single, termBound }: Search, limit: number, o: Resolv
   // A score that falls as a figure grows (only possible for a custom one) voids the bound.
   if (lowerBound !== null && lowerBound > best.score + tie) lowerBound = null;
   if (best.excess > tie) lowerBound = null;
-  return { best, lowerBound: lowerBound === null ? null : Math.min(lowerBound, best.score), proven, exactRan, nodes };
+  return { best, lowerBound: lowerBound === null ? null : Math.min(lowerBound, best.score), proven, exactRan, budgetReached, nodes };
 }
 
 function figuresOf(layouts: readonly ConditionLayout[], p: AssignmentProblem, choice: Int32Array): ConditionFigures[] {
@@ -347,7 +351,8 @@ export function rebalanceInstallation(installation: Installation, study: unknown
       const c = chosen.best;
       // Its bound is for its own (smaller) move limit: the answer keeps the whole limit's.
       if (a.excess <= tie && (c.excess > tie || a.score < c.score - tie || (a.score <= c.score + tie && a.moves < c.moves)))
-        chosen = { ...answer, lowerBound: main.lowerBound, proven: main.lowerBound !== null && main.lowerBound >= a.score - tie };
+        // Likewise whether branch-and-bound over the whole limit stopped at its budget.
+        chosen = { ...answer, lowerBound: main.lowerBound, proven: main.lowerBound !== null && main.lowerBound >= a.score - tie, budgetReached: main.budgetReached };
     }
     if (resolved.nearBestPercent !== null) {
       const best = Math.min(main.best.score, ...rows.map((r) => r.answer.best.score));
@@ -415,7 +420,7 @@ export function rebalanceInstallation(installation: Installation, study: unknown
     notes.push(REBALANCE_NOTES.banksInService(listedBanksInService(installation).map((b) => bankInServiceWords(b))));
   if (n === 0) notes.push(REBALANCE_NOTES.nothingToMove);
   else if (moves.length === 0) notes.push(REBALANCE_NOTES.alreadyBest);
-  if (chosen.exactRan && !chosen.proven && chosen.nodes > o.nodeBudget) notes.push(REBALANCE_NOTES.budgetReached(o.nodeBudget));
+  if (chosen.exactRan && !chosen.proven && chosen.budgetReached) notes.push(REBALANCE_NOTES.budgetReached(o.nodeBudget));
   if (chosen.lowerBound === null && chosen.best.excess <= tie && n > 0) notes.push(REBALANCE_NOTES.noBound);
   const excesses = chosen.best.excess > tie ? capacityExcesses(built, resolved, choice, tie) : [];
   if (excesses.length) {
@@ -457,7 +462,8 @@ export function rebalanceInstallation(installation: Installation, study: unknown
     aim: o.objective ? 'custom' : resolved.aim,
     combine: resolved.combine,
     moveLimit: Number.isFinite(resolved.moveLimit) ? resolved.moveLimit : null,
-    method: chosen.proven && chosen.exactRan ? 'exact' : 'local-search',
+    method: chosen.exactRan ? 'exact' : 'local-search',
+    methodAsked: o.method,
     proven: chosen.proven,
     score: {
       before: home.score,
@@ -482,6 +488,8 @@ export function rebalanceInstallation(installation: Installation, study: unknown
       movable: built.slots.filter((s) => s.options.length > 1).length,
       pinned: resolved.pinned.size,
       nodes: main.nodes + (chosen === main ? 0 : chosen.nodes),
+      nodeBudget: chosen.exactRan ? o.nodeBudget : null,
+      budgetReached: chosen.exactRan && chosen.budgetReached,
     },
     notes,
     cautions: REBALANCE_CAUTIONS,

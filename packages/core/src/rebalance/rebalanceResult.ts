@@ -90,8 +90,13 @@ export interface RebalanceReport {
   readonly aim: AimWeights | 'custom';
   readonly combine: 'worst' | 'weighted';
   readonly moveLimit: number | null;
-  /** `exact`: branch-and-bound ran to the end; `local-search`: the best found, with its bound. */
+  /**
+   * The search that gave the answer: `exact` when branch-and-bound ran (`proven`, or stopped at its node
+   * budget: `search.budgetReached`), `local-search` when only the local search ran (the best found, with its bound).
+   */
   readonly method: 'exact' | 'local-search';
+  /** The method the caller asked for (`auto` chooses by the number of movable circuits). */
+  readonly methodAsked: 'auto' | 'exact' | 'local-search';
   readonly proven: boolean;
   /** Scores in the fast model (lower is better; A for current figures, % for unbalance figures). */
   readonly score: {
@@ -120,7 +125,12 @@ export interface RebalanceReport {
     readonly circuits: number;
     readonly movable: number;
     readonly pinned: number;
+    /** Branch-and-bound nodes visited, over every search the answer and its table needed. */
     readonly nodes: number;
+    /** The node budget of each branch-and-bound search; null when none ran. */
+    readonly nodeBudget: number | null;
+    /** True when the branch-and-bound search for the answer stopped at its budget (the answer is then the best found). */
+    readonly budgetReached: boolean;
   };
   /** Facts about this answer worth reading (nothing to move, re-solve disagreement...). */
   readonly notes: readonly string[];

@@ -3,6 +3,7 @@ import type { PhaseLabel } from '../board/conventions/phaseNames.js';
 import { bandWords } from '../board/conventions/voltageLimits.js';
 import type { VoltageCheck } from '../analysis/voltageCheck.js';
 import { BANKS_IN_SERVICE_BASIS } from '../analysis/banksInServiceWords.js';
+import { groupDigits } from '../_internal/groupDigits.js';
 
 const VERDICT_WORDS: Record<VoltageCheck['verdict'], string> = {
   within: 'within',
@@ -35,7 +36,7 @@ export const REBALANCE_NOTES = {
   modelDiffers: (percent: number) =>
     `The network re-solve differs from the fast model by up to ${percent.toFixed(1)} % of a line current (impedances and load models); the solved figures are the ones to trust.`,
   budgetReached: (nodes: number) =>
-    `The exact search stopped at its budget of ${nodes} nodes; the answer is the best found and its gap comes from the lower bound.`,
+    `The exact search stopped at its budget of ${groupDigits(nodes)} nodes; the answer is the best found and its gap comes from the lower bound.`,
   noBound: 'The custom score broke the rule that it never falls when a figure grows, so no lower bound is reported.',
   capacityNotMet: (moveLimit: number, provenImpossible: boolean, excesses: readonly string[]) =>
     `${provenImpossible ? 'No assignment' : 'No assignment found'} with at most ${moveLimit} move${moveLimit === 1 ? '' : 's'} keeps every line within its capacity${provenImpossible ? ' (proven by the lower bound)' : ''}; this answer exceeds it least: ${excesses.join('; ')}.`,
