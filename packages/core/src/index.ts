@@ -230,6 +230,7 @@ export type { InstallationIntervalConditions } from './rebalance/installationInt
 export type { IntervalConditions, IntervalConditionOptions, IntervalPick, LoadConditionInput } from './rebalance/intervalConditions.js';
 export { rewriteInstallationText } from './rebalance/rewriteBoardText.js';
 export type * from './rebalance/rebalanceResult.js';
+export type { MovedCircuitNumber } from './rebalance/movedCircuitNumber.js';
 export { REBALANCE_CAUTIONS } from './rebalance/rebalanceWording.js';
 export { rewriteBoardText } from './rebalance/rewriteBoardText.js';
 

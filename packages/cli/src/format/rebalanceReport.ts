@@ -47,25 +47,47 @@ function verdict(r: RebalanceReport): string {
   return `${proof}${r.moveLimit === null ? '' : ` with at most ${plural(r.moveLimit)}`}`;
 }
 
+/** What the move does to the breaker's position and number, in a work-order cell. */
+function breakerWords(m: RebalanceReport['moves'][number], on: (c: string) => string): string {
+  const n = m.circuitNumber;
+  if (n === null) return '';
+  const implied = n.implied ? on(n.implied.join('-')) : '';
+  if (n.verdict === 'renumber') return `new position and no. (${m.circuit} is on ${implied})`;
+  if (n.verdict === 'matches-new-line') return `check: no. ${m.circuit} is on ${implied} already`;
+  return 'new position: update its no.';
+}
+
 function workOrder(r: RebalanceReport): string {
   if (r.moves.length === 0) return '  (no moves)';
   // The work order speaks the file's naming (L1-N where the file wrote L1-N).
   const on = (c: string) => labelIn(r.board.phaseNames ?? 'A/B/C', c);
-  // The number is the circuit's place in its board's loads list, not an order to make the moves in.
-  const legend = `\n${wrapText('(list no.: the circuit’s place in its board’s loads list, from 1; the moves may be made in any order)', '  ', '   ')}`;
-  if (isInstallation(r))
-    return (
-      renderTableWithin(
-        [{ header: 'board', align: 'left' }, { header: 'list no.' }, { header: 'circuit', align: 'left' }, { header: 'now on', align: 'left' }, { header: 'move to', align: 'left' }],
-        r.moves.map((m) => [m.board, String(m.circuit), m.name, on(m.from), on(m.to)]),
-      ) + legend
-    );
-  return (
-    renderTable(
-      [{ header: 'list no.' }, { header: 'circuit', align: 'left' }, { header: 'now on', align: 'left' }, { header: 'move to', align: 'left' }],
-      r.moves.map((m) => [String(m.circuit), m.name, on(m.from), on(m.to)]),
-    ) + legend
-  );
+  // The file's circuit numbers, where it gives them, and what each move does to its breaker's position.
+  const numbered = r.moves.some((m) => m.circuit !== null);
+  const north = r.moves.some((m) => m.circuitNumber?.implied);
+  const check = r.moves.some((m) => m.circuitNumber?.verdict === 'matches-new-line');
+  const legendWords = numbered
+    ? `(no.: the circuit number in the file; list no.: the circuit’s place in its board’s loads list, from 1; the moves may be made in any order. A moved circuit’s breaker takes a position on its new line${north ? ': the usual panel numbering (odd down the left, even down the right, lines in turn by row) ties each number to a line, so the circuit takes the new position’s number' : ''}.${check ? ' check: the number is already one of the new line’s while the file has the circuit on the old line: find its breaker before moving it.' : ''})`
+    : '(list no.: the circuit’s place in its board’s loads list, from 1; the moves may be made in any order)';
+  const legend = `\n${wrapText(legendWords, '  ', '   ')}`;
+  const columns = [
+    ...(isInstallation(r) ? [{ header: 'board', align: 'left' as const }] : []),
+    ...(numbered ? [{ header: 'no.', align: 'left' as const }] : []),
+    { header: 'list no.' },
+    { header: 'circuit', align: 'left' as const },
+    { header: 'now on', align: 'left' as const },
+    { header: 'move to', align: 'left' as const },
+    ...(numbered ? [{ header: 'breaker', align: 'left' as const }] : []),
+  ];
+  const rows = r.moves.map((m) => [
+    ...(isInstallation(r) ? [m.board] : []),
+    ...(numbered ? [m.circuit ?? '-'] : []),
+    String(m.listPosition),
+    m.name,
+    on(m.from),
+    on(m.to),
+    ...(numbered ? [breakerWords(m, on)] : []),
+  ]);
+  return (isInstallation(r) ? renderTableWithin(columns, rows) : renderTable(columns, rows)) + legend;
 }
 
 /** Installations: two rows per board's incomer (now, after), network re-solve; `*` marks the boards the score reads. */

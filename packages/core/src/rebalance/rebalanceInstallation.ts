@@ -40,6 +40,7 @@ import { termBoundFor } from './termBounds.js';
 import { installationInCondition, moveInstallationCircuits } from './applyMoves.js';
 import type { BoardVoltageComparison, CapacityExcess, CircuitMove, ConditionComparison, MoveTableRow, RebalanceReport } from './rebalanceResult.js';
 import { REBALANCE_CAUTIONS, REBALANCE_NOTES } from './rebalanceWording.js';
+import { movedCircuitNumber } from './movedCircuitNumber.js';
 import { bankInServiceWords, listedBanksInService } from '../analysis/banksInServiceWords.js';
 import { assertInstallationModel } from '../board/modelGuards.js';
 
@@ -304,7 +305,7 @@ function voltageComparisons(
  * @example
  * const { installation } = normaliseInstallation(parseInstallation(riser));
  * const report = rebalanceInstallation(installation, { boards: ['Floor 3'], measureAt: 'main' });
- * report.moves //=> [{ board: 'Floor 3', circuit: 1, name: 'Flat 3A', from: 'A-N', to: 'B-N' }]
+ * report.moves //=> [{ board: 'Floor 3', circuit: null, listPosition: 1, name: 'Flat 3A', from: 'A-N', to: 'B-N', circuitNumber: null }]
  */
 export function rebalanceInstallation(installation: Installation, study: unknown, options: RebalanceOptions = {}): RebalanceReport {
   assertInstallationModel(installation);
@@ -379,7 +380,9 @@ export function rebalanceInstallation(installation: Installation, study: unknown
   built.slots.forEach((slot, i) => {
     const to = slot.options[choice[i]!]!;
     if (to !== slot.present) {
-      moves.push({ board: slot.boardName, circuit: slot.loadIndex + 1, name: slot.name, from: slot.present, to });
+      const board = tree.boards[tree.circuits[slot.flat]!.board]!;
+      const circuit = board.loads[slot.loadIndex]!.schedule?.circuit ?? null;
+      moves.push({ board: slot.boardName, circuit, listPosition: slot.loadIndex + 1, name: slot.name, from: slot.present, to, circuitNumber: movedCircuitNumber(board, circuit, to) });
       moveMap.set(slot.flat, to);
     }
   });
@@ -418,6 +421,8 @@ export function rebalanceInstallation(installation: Installation, study: unknown
   // Banks the file lists in service (harmonics.banks) are loads of their boards, as trivar solve has them.
   if (installation.banksInService?.length)
     notes.push(REBALANCE_NOTES.banksInService(listedBanksInService(installation).map((b) => bankInServiceWords(b))));
+  const renumbered = moves.filter((m) => m.circuitNumber?.verdict === 'renumber');
+  if (renumbered.length) notes.push(REBALANCE_NOTES.renumber(renumbered.map((m) => ({ board: tree.boards.length > 1 ? m.board : null, circuit: m.circuit!, name: m.name }))));
   if (n === 0) notes.push(REBALANCE_NOTES.nothingToMove);
   else if (moves.length === 0) notes.push(REBALANCE_NOTES.alreadyBest);
   if (chosen.exactRan && !chosen.proven && chosen.budgetReached) notes.push(REBALANCE_NOTES.budgetReached(o.nodeBudget));

@@ -7,16 +7,21 @@ import type { ConnectionSpec } from '../board/boardSchema.js';
 import type { AimWeights, ConditionFigures } from './rebalanceObjective.js';
 import type { VoltageLimits } from '../board/conventions/voltageLimits.js';
 import type { VoltageCheck } from '../analysis/voltageCheck.js';
+import type { MovedCircuitNumber } from './movedCircuitNumber.js';
 
 /** One line of the work order. */
 export interface CircuitMove {
   /** The board the circuit is on. */
   readonly board: string;
+  /** The file's circuit number (`circuit:`) as written; null where the file gives none. */
+  readonly circuit: string | null;
   /** Position of the circuit in its board's `loads` list in the file, counted from 1. */
-  readonly circuit: number;
+  readonly listPosition: number;
   readonly name: string;
   readonly from: ConnectionSpec;
   readonly to: ConnectionSpec;
+  /** What the move does to the circuit number (its breaker takes another position); null where the file gives no number. */
+  readonly circuitNumber: MovedCircuitNumber | null;
 }
 
 /** One condition read at one measured board's incomer (a single board: its incomer). */
