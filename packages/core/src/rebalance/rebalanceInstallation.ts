@@ -424,7 +424,12 @@ export function rebalanceInstallation(installation: Installation, study: unknown
   const renumbered = moves.filter((m) => m.circuitNumber?.verdict === 'renumber');
   if (renumbered.length) notes.push(REBALANCE_NOTES.renumber(renumbered.map((m) => ({ board: tree.boards.length > 1 ? m.board : null, circuit: m.circuit!, name: m.name }))));
   if (n === 0) notes.push(REBALANCE_NOTES.nothingToMove);
-  else if (moves.length === 0) notes.push(REBALANCE_NOTES.alreadyBest);
+  else if (moves.length === 0) {
+    // No move within a limit below the circuit count may be the limit's doing: a search without it says.
+    const free = limit < n ? answerWithin(search, n, { ...o, method: 'local-search' }, tie, [main.best]).best : null;
+    if (free && free.excess <= tie && free.score < home.score - tie) notes.push(REBALANCE_NOTES.limitKeepsWiring(limit, free.moves, home.score, free.score));
+    else notes.push(REBALANCE_NOTES.alreadyBest);
+  }
   if (chosen.exactRan && !chosen.proven && chosen.budgetReached) notes.push(REBALANCE_NOTES.budgetReached(o.nodeBudget));
   if (chosen.lowerBound === null && chosen.best.excess <= tie && n > 0) notes.push(REBALANCE_NOTES.noBound);
   const excesses = chosen.best.excess > tie ? capacityExcesses(built, resolved, choice, tie) : [];

@@ -19,6 +19,9 @@ function extremesWords(check: VoltageCheck): string {
   return check.verdict === 'under' ? low : check.verdict === 'over' ? high : `${low}, ${high}`;
 }
 
+/** A score with the digits the text report gives it (a near-zero neutral still shows). */
+const scoreWords = (x: number) => (Math.abs(x) >= 100 ? x.toFixed(1) : Math.abs(x) >= 1 ? x.toFixed(2) : x.toFixed(3));
+
 export const REBALANCE_CAUTIONS: readonly string[] = [
   'Moving a circuit is work on live-capable equipment: isolate and prove dead first; the work is for a qualified electrician under local codes and licensed practice.',
   'Circuits that share a neutral (multi-wire branch circuits) must stay on different lines, and keep their common disconnect: check before moving either.',
@@ -34,6 +37,9 @@ export const REBALANCE_NOTES = {
     `${moved.map((m) => `"${m.name}"${m.board ? ` on "${m.board}"` : ''} (circuit ${m.circuit})`).join(', ')} ${moved.length === 1 ? 'takes a breaker position' : 'take breaker positions'} on ${moved.length === 1 ? 'its new line' : 'their new lines'}: the usual panel numbering ties each circuit number to a line, so ${moved.length === 1 ? 'it needs the number' : 'they need the numbers'} of the new position${moved.length === 1 ? '' : 's'}. A file rewritten with these moves keeps the old number${moved.length === 1 ? '' : 's'}; re-assign ${moved.length === 1 ? 'it' : 'them'} there and on the circuit chart.`,
   nothingToMove: 'No circuit on this board can move (three-phase, pinned, or the supply offers no other connection).',
   alreadyBest: 'The present wiring is already the best found: no moves.',
+  /** No move within the limit, where more moves would lower the score (fast model). */
+  limitKeepsWiring: (limit: number, moves: number, now: number, free: number) =>
+    `${limit === 0 ? 'The move limit of 0 allows no move' : `No move within the limit of ${limit} lowers the score`}, so the present wiring stays; without the limit, ${moves} move${moves === 1 ? '' : 's'} would take the score from ${scoreWords(now)} to ${scoreWords(free)} (fast model).`,
   solvedNotBetter: (before: number, after: number) =>
     `The network re-solve scores the moved board ${after.toFixed(3)} against ${before.toFixed(3)} now: not better, so keep the present wiring (voltage drop or load models differ from the fast model here).`,
   modelDiffers: (percent: number) =>
