@@ -188,6 +188,12 @@ loads:
     expect(r.stdout).toContain('"Oven" (circuit 1), "Spare" (circuit 13) take breaker positions on their new lines');
   });
 
+  it('a single-phase board: nothing to rebalance, said plainly, no scores, exit 0 (it printed two scores that disagreed)', () => {
+    const r = runTrivar(['rebalance', '-'], 'name: Single\nsupply: { system: single-phase, voltage: { lineToNeutral: 230 }, frequencyHz: 50 }\nloads:\n  - { name: W1, connection: A-N, kW: 3, pf: 0.9 }\n');
+    expect(r.code).toBe(0);
+    expect(r.stdout).toBe('Single\nA single-phase supply has one line: every circuit is on it and there is no other to move one to, so\nthere is nothing to rebalance.\n');
+  });
+
   it('refuses to write over its input', () => {
     const r = runTrivar(['rebalance', flats, '--write', flats]);
     expect(r.code).toBe(2);

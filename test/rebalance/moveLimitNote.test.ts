@@ -34,3 +34,14 @@ describe('rebalance: no moves, and why', () => {
     expect(r.notes).toContain('The present wiring is already the best found: no moves.');
   });
 });
+
+describe('rebalance: a single-phase board', () => {
+  it('says there is nothing to rebalance, with the oneLine flag (it scored the fast model without the neutral)', () => {
+    const single = { supply: { system: 'single-phase', voltage: { lineToNeutral: 230 }, frequencyHz: 50 }, loads: [{ name: 'W1', connection: 'A-N', kW: 3, pf: 0.9 }] } as BoardSpec;
+    const r = rebalanceBoard(normaliseBoard(parseBoard(single)), {});
+    expect(r.oneLine).toBe(true);
+    expect(r.moves).toEqual([]);
+    expect(r.notes).toEqual(['A single-phase supply has one line: every circuit is on it and there is no other to move one to, so there is nothing to rebalance.']);
+    expect(rebalanceBoard(board, {}, { moveTable: false }).oneLine).toBe(false);
+  });
+});

@@ -154,6 +154,8 @@ function moveTable(r: RebalanceReport): string {
 export function renderRebalanceReport(r: RebalanceReport): string {
   const lines = r.conditions[0]?.solved.before.lineA.map((_, k) => labelIn(r.board.phaseNames ?? 'A/B/C', 'ABC'[k]!)) ?? [];
   const installation = isInstallation(r);
+  // One line: no score, no work order, only why.
+  if (r.oneLine) return `${[r.board.name, ...r.notes.map((n) => wrapText(n, '', ''))].join('\n')}\n`;
   const parts: string[] = [
     r.board.name,
     wrapText(`Rebalancing: ${r.search.movable} of ${r.search.circuits} circuits can move${r.search.pinned ? `, ${r.search.pinned} pinned` : ''}${installation ? ` (boards: ${r.boards.movable.join(', ')})` : ''}`, '', '  '),

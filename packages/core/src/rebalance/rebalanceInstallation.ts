@@ -423,7 +423,9 @@ export function rebalanceInstallation(installation: Installation, study: unknown
     notes.push(REBALANCE_NOTES.banksInService(listedBanksInService(installation).map((b) => bankInServiceWords(b))));
   const renumbered = moves.filter((m) => m.circuitNumber?.verdict === 'renumber');
   if (renumbered.length) notes.push(REBALANCE_NOTES.renumber(renumbered.map((m) => ({ board: tree.boards.length > 1 ? m.board : null, circuit: m.circuit!, name: m.name }))));
-  if (n === 0) notes.push(REBALANCE_NOTES.nothingToMove);
+  const oneLine = tree.boards[0]!.phases.length === 1;
+  if (oneLine) notes.push(REBALANCE_NOTES.oneLine);
+  else if (n === 0) notes.push(REBALANCE_NOTES.nothingToMove);
   else if (moves.length === 0) {
     // No move within a limit below the circuit count may be the limit's doing: a search without it says.
     const free = limit < n ? answerWithin(search, n, { ...o, method: 'local-search' }, tie, [main.best]).best : null;
@@ -469,6 +471,7 @@ export function rebalanceInstallation(installation: Installation, study: unknown
       movable: tree.names.filter((_, b) => resolved.movableBoards[b]),
       measured: resolved.measuredBoards.map((b) => tree.names[b]!),
     },
+    oneLine,
     aim: o.objective ? 'custom' : resolved.aim,
     combine: resolved.combine,
     moveLimit: Number.isFinite(resolved.moveLimit) ? resolved.moveLimit : null,

@@ -91,6 +91,11 @@ export interface RebalanceReport {
   readonly board: { readonly name: string; readonly system: string; readonly phaseNames?: PhaseNaming };
   /** Every board (main board first, then the file's order), those whose circuits could move, and those whose incomers the score reads. */
   readonly boards: { readonly all: readonly string[]; readonly movable: readonly string[]; readonly measured: readonly string[] };
+  /**
+   * True on a single-phase supply: one line carries every circuit, so there is nothing to rebalance
+   * (the text report says so and shows no scores; the figures here are the board as it stands).
+   */
+  readonly oneLine: boolean;
   /** The weights of the built-in score, or `custom` for a caller's objective. */
   readonly aim: AimWeights | 'custom';
   readonly combine: 'worst' | 'weighted';

@@ -35,6 +35,7 @@ export const REBALANCE_NOTES = {
   /** Moved circuits whose number the usual North-American numbering ties to the line they leave. */
   renumber: (moved: readonly { board: string | null; circuit: string; name: string }[]) =>
     `${moved.map((m) => `"${m.name}"${m.board ? ` on "${m.board}"` : ''} (circuit ${m.circuit})`).join(', ')} ${moved.length === 1 ? 'takes a breaker position' : 'take breaker positions'} on ${moved.length === 1 ? 'its new line' : 'their new lines'}: the usual panel numbering ties each circuit number to a line, so ${moved.length === 1 ? 'it needs the number' : 'they need the numbers'} of the new position${moved.length === 1 ? '' : 's'}. A file rewritten with these moves keeps the old number${moved.length === 1 ? '' : 's'}; re-assign ${moved.length === 1 ? 'it' : 'them'} there and on the circuit chart.`,
+  oneLine: 'A single-phase supply has one line: every circuit is on it and there is no other to move one to, so there is nothing to rebalance.',
   nothingToMove: 'No circuit on this board can move (three-phase, pinned, or the supply offers no other connection).',
   alreadyBest: 'The present wiring is already the best found: no moves.',
   /** No move within the limit, where more moves would lower the score (fast model). */
