@@ -97,18 +97,20 @@ function boardsTable(r: RebalanceReport, condition: string): string {
     ...r.otherBoards.filter((c) => c.name === condition).map((c) => ({ board: c.board, measured: false, before: c.before, after: c.after })),
   ].sort((a, b) => r.boards.all.indexOf(a.board) - r.boards.all.indexOf(b.board));
   const first = rows[0]!.before;
+  // |I2|/|I1| is a three-line figure; an idle board's is "-", not a missing column.
+  const threeLines = first.lineA.length === 3;
   const columns = [
     { header: 'board incomer', align: 'left' as const },
     { header: '', align: 'left' as const },
     ...first.lineA.map((_, k) => ({ header: `line ${labelIn(r.board.phaseNames ?? 'A/B/C', 'ABC'[k]!)}` })),
     ...(first.neutralA !== null ? [{ header: 'neutral' }] : []),
-    ...(first.currentUnbalancePercent !== null ? [{ header: '|I2|/|I1|' }] : []),
+    ...(threeLines ? [{ header: '|I2|/|I1|' }] : []),
     ...(first.voltageUnbalancePercent !== null ? [{ header: '|V2|/|V1|' }] : []),
   ];
   const cells = (f: ConditionFigures) => [
     ...f.lineA.map((a) => amps(a)),
     ...(first.neutralA !== null ? [amps(f.neutralA)] : []),
-    ...(first.currentUnbalancePercent !== null ? [percent(f.currentUnbalancePercent)] : []),
+    ...(threeLines ? [percent(f.currentUnbalancePercent)] : []),
     ...(first.voltageUnbalancePercent !== null ? [percent(f.voltageUnbalancePercent)] : []),
   ];
   const mark = rows.some((x) => !x.measured);
@@ -128,7 +130,7 @@ function conditionTable(c: ConditionComparison, lines: readonly string[]): strin
     rows.push([label, pick(c.solved.before), pick(c.solved.after), pick(c.model.after)]);
   lines.forEach((line, k) => row(`line ${line} (A)`, (f) => amps(f.lineA[k] ?? null)));
   if (c.solved.before.neutralA !== null) row('neutral (A)', (f) => amps(f.neutralA));
-  if (c.solved.before.currentUnbalancePercent !== null) row('|I2|/|I1| (%)', (f) => percent(f.currentUnbalancePercent));
+  if (lines.length === 3) row('|I2|/|I1| (%)', (f) => percent(f.currentUnbalancePercent));
   if (c.solved.before.voltageUnbalancePercent !== null)
     rows.push(['|V2|/|V1| (%)', percent(c.solved.before.voltageUnbalancePercent), percent(c.solved.after.voltageUnbalancePercent), c.model.after.voltageUnbalancePercent === null ? '-' : percent(c.model.after.voltageUnbalancePercent)]);
   return renderTable(

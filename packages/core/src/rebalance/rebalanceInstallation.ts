@@ -195,14 +195,18 @@ function answerWithin({ p, single, termBound }: Search, limit: number, o: Resolv
   return { best, lowerBound: lowerBound === null ? null : Math.min(lowerBound, best.score), proven, exactRan, budgetReached, nodes };
 }
 
+/** |I2|/|I1| of a board that draws no current has no value (0/0): null, as on a board without the figure. */
+const idleRatioVoid = (f: ConditionFigures): ConditionFigures => (f.lineA.every((a) => a === 0) ? { ...f, currentUnbalancePercent: null } : f);
+
+/** The fast model's figures for the report (the search reads conditionFigures itself). */
 function figuresOf(layouts: readonly ConditionLayout[], p: AssignmentProblem, choice: Int32Array): ConditionFigures[] {
   const mags = magnitudesOf(sumQuantities(p, choice), new Float64Array(p.quantityCount));
-  return layouts.map((l) => conditionFigures(l, mags));
+  return layouts.map((l) => idleRatioVoid(conditionFigures(l, mags)));
 }
 
 function solvedFigures(name: string, board: string, result: BoardResult): ConditionFigures {
   const lineA = result.phases.map((ph) => ph.current.magnitude);
-  return {
+  return idleRatioVoid({
     name,
     board,
     lineA,
@@ -210,7 +214,7 @@ function solvedFigures(name: string, board: string, result: BoardResult): Condit
     neutralA: result.neutral ? result.neutral.current.magnitude : null,
     currentUnbalancePercent: result.unbalance ? result.unbalance.currentNegativePercent : null,
     voltageUnbalancePercent: result.unbalance ? result.unbalance.voltageFactorPercent : null,
-  };
+  });
 }
 
 /** Capacity below what no spread of the movable circuits can avoid is a bad study, whatever the move limit. */
