@@ -85,6 +85,23 @@ export interface CapacityExcess {
   readonly overA: number;
 }
 
+/** One board's neutral with harmonics (the harmonic study at the file's loads), now and after the moves. */
+export interface HarmonicNeutralComparison {
+  readonly board: string;
+  readonly ratingA: number | null;
+  readonly before: HarmonicNeutralFigures;
+  readonly after: HarmonicNeutralFigures;
+}
+
+export interface HarmonicNeutralFigures {
+  /** rms of every order, A: what heats the conductor. */
+  readonly rmsA: number;
+  /** rms of the triplen orders (3, 9, 15…), A: rebalancing does not move them. */
+  readonly triplenA: number;
+  /** rms against the neutral's rating, %; null without a rating. */
+  readonly loadingPercent: number | null;
+}
+
 export interface RebalanceReport {
   /** The board, or the installation (its name) when it has several boards. */
   /** `phaseNames`: how the file names phases; moves stay in A/B/C here, reports relabel them. */
@@ -142,6 +159,11 @@ export interface RebalanceReport {
     /** True when the branch-and-bound search for the answer stopped at its budget (the answer is then the best found). */
     readonly budgetReached: boolean;
   };
+  /**
+   * Files with harmonic data (`withHarmonicNeutral`): each board's neutral rms now and after the moves.
+   * The condition figures above are the fundamental only. Absent otherwise.
+   */
+  readonly harmonicNeutral?: readonly HarmonicNeutralComparison[];
   /** Facts about this answer worth reading (nothing to move, re-solve disagreement...). */
   readonly notes: readonly string[];
   readonly cautions: readonly string[];

@@ -36,6 +36,22 @@ export const REBALANCE_NOTES = {
   renumber: (moved: readonly { board: string | null; circuit: string; name: string }[]) =>
     `${moved.map((m) => `"${m.name}"${m.board ? ` on "${m.board}"` : ''} (circuit ${m.circuit})`).join(', ')} ${moved.length === 1 ? 'takes a breaker position' : 'take breaker positions'} on ${moved.length === 1 ? 'its new line' : 'their new lines'}: the usual panel numbering ties each circuit number to a line, so ${moved.length === 1 ? 'it needs the number' : 'they need the numbers'} of the new position${moved.length === 1 ? '' : 's'}. A file rewritten with these moves keeps the old number${moved.length === 1 ? '' : 's'}; re-assign ${moved.length === 1 ? 'it' : 'them'} there and on the circuit chart.`,
   oneLine: 'A single-phase supply has one line: every circuit is on it and there is no other to move one to, so there is nothing to rebalance.',
+  /** Loads with harmonic spectra: the neutral figures are the fundamental's; the rms from the harmonic study, where it ran. */
+  harmonicNeutral: (
+    neutrals: readonly { board: string; ratingA: number | null; before: { rmsA: number; loadingPercent: number | null }; after: { rmsA: number; loadingPercent: number | null } }[],
+    withBoard: boolean,
+  ) => {
+    const head =
+      'The loads have harmonic spectra: the neutral currents above are the fundamental only. The triplen orders (3, 9, 15…) add in the neutral whatever line a circuit is on, so moving circuits leaves them where they are.';
+    if (!neutrals.length) return `${head} Run trivar harmonics on the file, and on it after the moves, for the neutral's rms.`;
+    const each = neutrals.map((n) => {
+      const load = n.before.loadingPercent !== null && n.after.loadingPercent !== null && n.ratingA !== null
+        ? ` (${n.before.loadingPercent.toFixed(0)} % → ${n.after.loadingPercent.toFixed(0)} % of its ${n.ratingA.toFixed(0)} A rating${n.after.loadingPercent > 100 ? (n.before.loadingPercent > 100 ? ': still above it' : ': above it') : ''})`
+        : '';
+      return `${withBoard ? `"${n.board}" ` : ''}${n.before.rmsA.toFixed(1)} → ${n.after.rmsA.toFixed(1)} A${load}`;
+    });
+    return `${head} The harmonic study at the file's own loads gives the neutral's rms now → after: ${each.join('; ')}.`;
+  },
   nothingToMove: 'No circuit on this board can move (three-phase, pinned, or the supply offers no other connection).',
   alreadyBest: 'The present wiring is already the best found: no moves.',
   /** No move within the limit, where more moves would lower the score (fast model). */
