@@ -7,7 +7,7 @@
  */
 import { readBoardText } from '../board/readBoardText.js';
 import { isInstallationInput } from '../board/installationInput.js';
-import { NumericalError } from '../errors.js';
+import { InputError, NumericalError } from '../errors.js';
 import { boardHasHarmonicData, installationHasHarmonicData } from '../harmonics/boardHasHarmonicData.js';
 import { rewriteBoardText } from '../rebalance/rewriteBoardText.js';
 import type { HarmonicNeutralComparison, RebalanceReport } from '../rebalance/rebalanceResult.js';
@@ -48,8 +48,9 @@ export function withHarmonicNeutral(report: RebalanceReport, text: string): Reba
       return b.figures && a.figures ? [{ board: b.board, ratingA: b.ratingA, before: b.figures, after: a.figures }] : [];
     });
   } catch (error) {
-    // The figures are a help to the note, not the study: without them the note points to the harmonic study.
-    if (!(error instanceof NumericalError)) throw error;
+    // The figures are a help to the note, not the study: where the harmonic study refuses the file or
+    // cannot solve it, the note points to that study, which says why.
+    if (!(error instanceof NumericalError || error instanceof InputError)) throw error;
     return { ...report, notes: [...report.notes, REBALANCE_NOTES.harmonicNeutral([], report.boards.all.length > 1)] };
   }
   return { ...report, harmonicNeutral: comparisons, notes: [...report.notes, REBALANCE_NOTES.harmonicNeutral(comparisons, report.boards.all.length > 1)] };
