@@ -23,7 +23,7 @@ const board = normaliseBoard(
 const report = rebalanceBoard(board, { pinned: ['Server cupboard'] });
 
 export const proven = report.proven; //=> true
-export const workOrder = report.moves.map((m) => `${m.circuit} ${m.name}: ${m.from} → ${m.to}`); //=> ["1 Sockets east: A-N → C-N","3 Kitchenette: A-N → B-N"]
+export const workOrder = report.moves.map((m) => `${m.listPosition} ${m.name}: ${m.from} → ${m.to}`); //=> ["1 Sockets east: A-N → C-N","3 Kitchenette: A-N → B-N"]
 export const neutralAfter = report.conditions[0]!.solved.after.neutralA!.toFixed(2); //=> "3.03"
 
 const ownScore = (conditions: readonly ConditionFigures[]) =>
@@ -66,5 +66,5 @@ const { installation } = normaliseInstallation(
 const neutralSquares = (figures: readonly ConditionFigures[]) => figures.reduce((s, f) => s + (f.neutralA ?? 0) ** 2, 0);
 const mews = rebalanceInstallation(installation, { boards: ['Unit 2'] }, { objective: neutralSquares });
 
-export const mewsOrder = mews.moves.map((m) => `${m.board} ${m.circuit} ${m.name}: ${m.from} → ${m.to}`); //=> ["Unit 2 1 Saw bench: A-N → C-N","Unit 2 2 Dust extractor: A-N → B-N","Unit 2 3 Heaters: C-N → B-N"]
+export const mewsOrder = mews.moves.map((m) => `${m.board} ${m.listPosition} ${m.name}: ${m.from} → ${m.to}`); //=> ["Unit 2 1 Saw bench: A-N → C-N","Unit 2 2 Dust extractor: A-N → B-N","Unit 2 3 Heaters: C-N → B-N"]
 export const mewsNeutrals = mews.conditions.map((c) => `${c.board} ${c.solved.after.neutralA!.toFixed(1)}`); //=> ["Yard board 7.9","Unit 1 19.0","Unit 2 14.7"]

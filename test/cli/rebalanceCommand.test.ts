@@ -68,7 +68,7 @@ describe('trivar rebalance (built binary)', () => {
     const report = JSON.parse(r.stdout) as ReturnType<typeof rebalanceBoard>;
     expect(report.moves.length).toBeGreaterThan(0);
     expect(report.moves.length).toBeLessThanOrEqual(4);
-    for (const m of report.moves) expect(shown.stdout).toMatch(new RegExp(`${m.board}\\s+${m.circuit}\\s+${m.name}\\s+${m.from}\\s+${m.to}`));
+    for (const m of report.moves) expect(shown.stdout).toMatch(new RegExp(`${m.board}\\s+${m.listPosition}\\s+${m.name}\\s+${m.from}\\s+${m.to}`));
     const written = readFileSync(out, 'utf8');
     expect(written).toContain('# Invented example');
     const solved = solveInstallation(readBoardText(written));
@@ -154,6 +154,44 @@ describe('trivar rebalance (built binary)', () => {
       expect(r.code, args.join(' ')).toBe(2);
       expect(r.stderr).toContain(`${args[0]} chooses among an installation's boards`);
     }
+  });
+
+  it('--method exact --json: the method asked, the budget reached and the same notes as the text (it said local-search, no note)', () => {
+    const quay = 'examples/quay-street-flats.yaml';
+    const r = runTrivar(['rebalance', quay, '--method', 'exact', '--json']);
+    expect(r.code).toBe(0);
+    const report = JSON.parse(r.stdout) as ReturnType<typeof rebalanceBoard>;
+    expect([report.methodAsked, report.method, report.proven]).toEqual(['exact', 'exact', false]);
+    expect(report.search).toMatchObject({ nodeBudget: 2_000_000, budgetReached: true });
+    expect(report.search.nodes).toBeGreaterThan(2_000_000);
+    const note = 'The exact search stopped at its budget of 2,000,000 nodes; the answer is the best found and its gap comes from the lower bound.';
+    expect(report.notes).toContain(note);
+  });
+
+  it('the work order shows the file\'s circuit numbers beside the list position, and what each move does to the breaker (it showed list no. 1, 2, 6 only)', () => {
+    const text = `name: RB2
+supply: { system: three-phase-4wire, voltage: { lineToLine: 208 }, frequencyHz: 60 }
+loads:
+  - { name: Oven, circuit: "1", connection: A-N, kW: 3, pf: 1 }
+  - { name: Kettle, circuit: "3", connection: A-N, kW: 2, pf: 1 }
+  - { name: Dryer, circuit: "5-7", connection: A-B, kW: 5, pf: 1 }
+  - { name: Lights, circuit: "9", connection: A-N, kW: 1.5, pf: 0.9 }
+  - { name: Pump, circuit: "11", connection: A-N, kW: 1.4, pf: 0.8 }
+  - { name: Spare, circuit: "13", connection: B-N, kW: 0.1, pf: 1 }
+`;
+    const r = runTrivar(['rebalance', '-', '--no-table'], text);
+    expect(r.code).toBe(0);
+    expect(r.stdout).toMatch(/no\.\s+list no\.\s+circuit\s+now on\s+move to\s+breaker/);
+    expect(r.stdout).toMatch(/ 1 +1 +Oven +A-N +C-N +new position and no\. \(1 is on A\)/);
+    expect(r.stdout).toMatch(/ 3 +2 +Kettle +A-N +B-N +check: no\. 3 is on B already/);
+    expect(r.stdout).toMatch(/ 13 +6 +Spare +B-N +C-N +new position and no\. \(13 is on A\)/);
+    expect(r.stdout).toContain('"Oven" (circuit 1), "Spare" (circuit 13) take breaker positions on their new lines');
+  });
+
+  it('a single-phase board: nothing to rebalance, said plainly, no scores, exit 0 (it printed two scores that disagreed)', () => {
+    const r = runTrivar(['rebalance', '-'], 'name: Single\nsupply: { system: single-phase, voltage: { lineToNeutral: 230 }, frequencyHz: 50 }\nloads:\n  - { name: W1, connection: A-N, kW: 3, pf: 0.9 }\n');
+    expect(r.code).toBe(0);
+    expect(r.stdout).toBe('Single\nA single-phase supply has one line: every circuit is on it and there is no other to move one to, so\nthere is nothing to rebalance.\n');
   });
 
   it('refuses to write over its input', () => {

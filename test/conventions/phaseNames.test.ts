@@ -174,13 +174,13 @@ describe('rebalancing a file written in L1/L2/L3', () => {
   it('writes the moved circuits back in the file’s own naming, so the file stays valid', () => {
     const text = 'supply: { voltage: 230/400, frequencyHz: 50 }\nloads:\n  - { name: Kettle, connection: L1-N, kW: 2 }\n  - { name: Oven, connection: L1-L2, kW: 3 }\n';
     const out = rewriteBoardText(text, [
-      { circuit: 1, name: 'Kettle', to: 'B-N' },
-      { circuit: 2, name: 'Oven', to: 'C-A' },
+      { listPosition: 1, name: 'Kettle', to: 'B-N' },
+      { listPosition: 2, name: 'Oven', to: 'C-A' },
     ]);
     expect(out).toContain('connection: L2-N');
     expect(out).toContain('connection: L3-L1');
     expect(validateBoard(readBoardText(out)).ok).toBe(true);
-    expect(rewriteBoardText('loads:\n  - { name: Kettle, connection: A-N, kW: 2 }\n', [{ circuit: 1, name: 'Kettle', to: 'B-N' }])).toContain('connection: B-N');
+    expect(rewriteBoardText('loads:\n  - { name: Kettle, connection: A-N, kW: 2 }\n', [{ listPosition: 1, name: 'Kettle', to: 'B-N' }])).toContain('connection: B-N');
   });
 });
 

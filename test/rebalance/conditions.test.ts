@@ -54,7 +54,7 @@ describe('rebalance: profile scenarios as load conditions', () => {
   it.each(['worst', 'weighted'] as const)('%s: before and after of every condition match the test-side model; the score is its definition', (combine) => {
     const report = rebalanceBoard(model, { conditions: 'scenarios', combine }, { method: 'exact', moveTable: false, profile: board.profile });
     expect(report.conditions.map((c) => [c.name, c.weight])).toEqual([['baking', 1800], ['sunny noon', 1200], ['evening', 2400]]);
-    const after = board.loads.map((l, i) => report.moves.find((m) => m.circuit === i + 1)?.to ?? l.connection) as ConnectionSpec[];
+    const after = board.loads.map((l, i) => report.moves.find((m) => m.listPosition === i + 1)?.to ?? l.connection) as ConnectionSpec[];
     const perCondition = report.conditions.map((c, k) => {
       for (const [side, wiring] of [['before', board.loads.map((l) => l.connection)], ['after', after]] as const) {
         const f = boardFigures(board, wiring, fractions(k));

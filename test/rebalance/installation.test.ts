@@ -48,7 +48,7 @@ function scoreOf(spec: InstallationSpec, connections: readonly (readonly Connect
 }
 
 const wiringAfter = (spec: InstallationSpec, report: RebalanceReport): ConnectionSpec[][] =>
-  spec.boards.map((b) => b.loads.map((l, i) => report.moves.find((m) => m.board === b.name && m.circuit === i + 1)?.to ?? l.connection));
+  spec.boards.map((b) => b.loads.map((l, i) => report.moves.find((m) => m.board === b.name && m.listPosition === i + 1)?.to ?? l.connection));
 
 const whereArb = fc.constantFrom<'each' | 'main' | 'sub'>('each', 'main', 'sub');
 const measuredFor = (spec: InstallationSpec, where: 'each' | 'main' | 'sub') =>
@@ -126,7 +126,7 @@ describe('rebalance on installations: laws of every answer', () => {
             expect(x).not.toBe(y);
           }),
         );
-        for (const m of report.moves) expect(spec.boards.find((b) => b.name === m.board)!.loads[m.circuit - 1]!.name).toBe(m.name);
+        for (const m of report.moves) expect(spec.boards.find((b) => b.name === m.board)!.loads[m.listPosition - 1]!.name).toBe(m.name);
       }),
       { numRuns: 25 },
     );

@@ -73,7 +73,7 @@ describe('rebalance: laws of every answer', () => {
         // Moves are real moves, numbered as in the file.
         for (const m of report.moves) {
           expect(m.from).not.toBe(m.to);
-          expect(spec.loads[m.circuit - 1]!.name).toBe(m.name);
+          expect(spec.loads[m.listPosition - 1]!.name).toBe(m.name);
         }
       }),
       { numRuns: 30 },

@@ -230,8 +230,10 @@ export type { InstallationIntervalConditions } from './rebalance/installationInt
 export type { IntervalConditions, IntervalConditionOptions, IntervalPick, LoadConditionInput } from './rebalance/intervalConditions.js';
 export { rewriteInstallationText } from './rebalance/rewriteBoardText.js';
 export type * from './rebalance/rebalanceResult.js';
+export type { MovedCircuitNumber } from './rebalance/movedCircuitNumber.js';
 export { REBALANCE_CAUTIONS } from './rebalance/rebalanceWording.js';
 export { rewriteBoardText } from './rebalance/rewriteBoardText.js';
+export { withHarmonicNeutral } from './boardFile/rebalanceHarmonicNeutral.js';
 
 // Drawings and reports (SVG/HTML/Markdown text; the CLI writes the files)
 export type { PhasorDiagramOptions } from './render/renderPhasorDiagram.js';

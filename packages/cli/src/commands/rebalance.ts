@@ -19,6 +19,7 @@ import {
   rebalanceBoard,
   rebalanceInstallation,
   rewriteBoardText,
+  withHarmonicNeutral,
   type Board,
   type BoardSpec,
   type Installation,
@@ -127,6 +128,8 @@ export async function runRebalance(file: string, options: RebalanceCommandOption
     }
     throw error;
   }
+  // With harmonic data the neutral figures are the fundamental's: the note says so, with the rms now and after.
+  report = withHarmonicNeutral(report, text);
   if (options.write !== undefined) writeOutputFile(options.write, rewriteBoardText(text, report.moves));
   writeResult(io, report, options.json, renderRebalanceReport);
   return report;

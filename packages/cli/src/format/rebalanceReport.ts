@@ -47,25 +47,47 @@ function verdict(r: RebalanceReport): string {
   return `${proof}${r.moveLimit === null ? '' : ` with at most ${plural(r.moveLimit)}`}`;
 }
 
+/** What the move does to the breaker's position and number, in a work-order cell. */
+function breakerWords(m: RebalanceReport['moves'][number], on: (c: string) => string): string {
+  const n = m.circuitNumber;
+  if (n === null) return '';
+  const implied = n.implied ? on(n.implied.join('-')) : '';
+  if (n.verdict === 'renumber') return `new position and no. (${m.circuit} is on ${implied})`;
+  if (n.verdict === 'matches-new-line') return `check: no. ${m.circuit} is on ${implied} already`;
+  return 'new position: update its no.';
+}
+
 function workOrder(r: RebalanceReport): string {
   if (r.moves.length === 0) return '  (no moves)';
   // The work order speaks the file's naming (L1-N where the file wrote L1-N).
   const on = (c: string) => labelIn(r.board.phaseNames ?? 'A/B/C', c);
-  // The number is the circuit's place in its board's loads list, not an order to make the moves in.
-  const legend = `\n${wrapText('(list no.: the circuit’s place in its board’s loads list, from 1; the moves may be made in any order)', '  ', '   ')}`;
-  if (isInstallation(r))
-    return (
-      renderTableWithin(
-        [{ header: 'board', align: 'left' }, { header: 'list no.' }, { header: 'circuit', align: 'left' }, { header: 'now on', align: 'left' }, { header: 'move to', align: 'left' }],
-        r.moves.map((m) => [m.board, String(m.circuit), m.name, on(m.from), on(m.to)]),
-      ) + legend
-    );
-  return (
-    renderTable(
-      [{ header: 'list no.' }, { header: 'circuit', align: 'left' }, { header: 'now on', align: 'left' }, { header: 'move to', align: 'left' }],
-      r.moves.map((m) => [String(m.circuit), m.name, on(m.from), on(m.to)]),
-    ) + legend
-  );
+  // The file's circuit numbers, where it gives them, and what each move does to its breaker's position.
+  const numbered = r.moves.some((m) => m.circuit !== null);
+  const north = r.moves.some((m) => m.circuitNumber?.implied);
+  const check = r.moves.some((m) => m.circuitNumber?.verdict === 'matches-new-line');
+  const legendWords = numbered
+    ? `(no.: the circuit number in the file; list no.: the circuit’s place in its board’s loads list, from 1; the moves may be made in any order. A moved circuit’s breaker takes a position on its new line${north ? ': the usual panel numbering (odd down the left, even down the right, lines in turn by row) ties each number to a line, so the circuit takes the new position’s number' : ''}.${check ? ' check: the number is already one of the new line’s while the file has the circuit on the old line: find its breaker before moving it.' : ''})`
+    : '(list no.: the circuit’s place in its board’s loads list, from 1; the moves may be made in any order)';
+  const legend = `\n${wrapText(legendWords, '  ', '   ')}`;
+  const columns = [
+    ...(isInstallation(r) ? [{ header: 'board', align: 'left' as const }] : []),
+    ...(numbered ? [{ header: 'no.', align: 'left' as const }] : []),
+    { header: 'list no.' },
+    { header: 'circuit', align: 'left' as const },
+    { header: 'now on', align: 'left' as const },
+    { header: 'move to', align: 'left' as const },
+    ...(numbered ? [{ header: 'breaker', align: 'left' as const }] : []),
+  ];
+  const rows = r.moves.map((m) => [
+    ...(isInstallation(r) ? [m.board] : []),
+    ...(numbered ? [m.circuit ?? '-'] : []),
+    String(m.listPosition),
+    m.name,
+    on(m.from),
+    on(m.to),
+    ...(numbered ? [breakerWords(m, on)] : []),
+  ]);
+  return (isInstallation(r) ? renderTableWithin(columns, rows) : renderTable(columns, rows)) + legend;
 }
 
 /** Installations: two rows per board's incomer (now, after), network re-solve; `*` marks the boards the score reads. */
@@ -75,18 +97,20 @@ function boardsTable(r: RebalanceReport, condition: string): string {
     ...r.otherBoards.filter((c) => c.name === condition).map((c) => ({ board: c.board, measured: false, before: c.before, after: c.after })),
   ].sort((a, b) => r.boards.all.indexOf(a.board) - r.boards.all.indexOf(b.board));
   const first = rows[0]!.before;
+  // |I2|/|I1| is a three-line figure; an idle board's is "-", not a missing column.
+  const threeLines = first.lineA.length === 3;
   const columns = [
     { header: 'board incomer', align: 'left' as const },
     { header: '', align: 'left' as const },
     ...first.lineA.map((_, k) => ({ header: `line ${labelIn(r.board.phaseNames ?? 'A/B/C', 'ABC'[k]!)}` })),
     ...(first.neutralA !== null ? [{ header: 'neutral' }] : []),
-    ...(first.currentUnbalancePercent !== null ? [{ header: '|I2|/|I1|' }] : []),
+    ...(threeLines ? [{ header: '|I2|/|I1|' }] : []),
     ...(first.voltageUnbalancePercent !== null ? [{ header: '|V2|/|V1|' }] : []),
   ];
   const cells = (f: ConditionFigures) => [
     ...f.lineA.map((a) => amps(a)),
     ...(first.neutralA !== null ? [amps(f.neutralA)] : []),
-    ...(first.currentUnbalancePercent !== null ? [percent(f.currentUnbalancePercent)] : []),
+    ...(threeLines ? [percent(f.currentUnbalancePercent)] : []),
     ...(first.voltageUnbalancePercent !== null ? [percent(f.voltageUnbalancePercent)] : []),
   ];
   const mark = rows.some((x) => !x.measured);
@@ -106,7 +130,7 @@ function conditionTable(c: ConditionComparison, lines: readonly string[]): strin
     rows.push([label, pick(c.solved.before), pick(c.solved.after), pick(c.model.after)]);
   lines.forEach((line, k) => row(`line ${line} (A)`, (f) => amps(f.lineA[k] ?? null)));
   if (c.solved.before.neutralA !== null) row('neutral (A)', (f) => amps(f.neutralA));
-  if (c.solved.before.currentUnbalancePercent !== null) row('|I2|/|I1| (%)', (f) => percent(f.currentUnbalancePercent));
+  if (lines.length === 3) row('|I2|/|I1| (%)', (f) => percent(f.currentUnbalancePercent));
   if (c.solved.before.voltageUnbalancePercent !== null)
     rows.push(['|V2|/|V1| (%)', percent(c.solved.before.voltageUnbalancePercent), percent(c.solved.after.voltageUnbalancePercent), c.model.after.voltageUnbalancePercent === null ? '-' : percent(c.model.after.voltageUnbalancePercent)]);
   return renderTable(
@@ -132,6 +156,8 @@ function moveTable(r: RebalanceReport): string {
 export function renderRebalanceReport(r: RebalanceReport): string {
   const lines = r.conditions[0]?.solved.before.lineA.map((_, k) => labelIn(r.board.phaseNames ?? 'A/B/C', 'ABC'[k]!)) ?? [];
   const installation = isInstallation(r);
+  // One line: no score, no work order, only why.
+  if (r.oneLine) return `${[r.board.name, ...r.notes.map((n) => wrapText(n, '', ''))].join('\n')}\n`;
   const parts: string[] = [
     r.board.name,
     wrapText(`Rebalancing: ${r.search.movable} of ${r.search.circuits} circuits can move${r.search.pinned ? `, ${r.search.pinned} pinned` : ''}${installation ? ` (boards: ${r.boards.movable.join(', ')})` : ''}`, '', '  '),

@@ -7,7 +7,7 @@ import { regionWords } from '../board/conventions/regionWords.js';
 import { boardVoltagePoints } from './voltageCheck.js';
 import { bandWords, judgeVoltage, presetLimits, type VoltageLimits } from '../board/conventions/voltageLimits.js';
 import type { Region } from '../board/conventions/region.js';
-import { circuitNumberMismatches } from './panelNumbering.js';
+import { circuitNumberMismatches, sharedCircuitNumbers } from './panelNumbering.js';
 import { unitWords } from './sourceUnitsWords.js';
 
 export const WARNING_THRESHOLDS = {
@@ -186,6 +186,15 @@ export function boardWarnings(input: {
         threshold: phases.length,
       });
     }
+  for (const shared of sharedCircuitNumbers(loads)) {
+    const names = shared.names.map((n) => `"${n}"`);
+    out.push({
+      code: 'circuit-number-shared',
+      message: `loads ${names.slice(0, -1).join(', ')} and ${names.at(-1)} ${names.length === 2 ? 'both' : 'all'} give circuit ${shared.circuit}: one breaker position holds one circuit; check the schedule`,
+      value: shared.names.length,
+      threshold: 1,
+    });
+  }
   for (const b of input.belowThreshold)
     out.push({
       code: 'load-below-model-threshold',

@@ -18,10 +18,10 @@ export function panelPhasesOf(circuit: number, poles: number, phaseCount: 2 | 3)
 }
 
 /** A circuit number as people write one on a schedule: a whole number from 1 ("7", " 12 "); anything else is not judged. */
-const circuitNumberOf = (circuit: string | null): number | null => (circuit !== null && /^\s*[1-9]\d{0,3}\s*$/.test(circuit) ? Number(circuit) : null);
+export const circuitNumberOf = (circuit: string | null): number | null => (circuit !== null && /^\s*[1-9]\d{0,3}\s*$/.test(circuit) ? Number(circuit) : null);
 
 /** The phases a connection puts a load on (A-N → A, C-A → C and A); null for a three-phase load, which the numbering cannot contradict. */
-function writtenPhases(connection: string): string[] | null {
+export function writtenPhases(connection: string): string[] | null {
   if (connection === 'ABC-star' || connection === 'ABC-delta') return null;
   return connection.split('-').filter((t) => t !== 'N');
 }
@@ -54,4 +54,27 @@ export function circuitNumberMismatches(loads: readonly LoadReading[], phaseCoun
     if (sameSet(written, implied)) return [];
     return [{ name: load.name, circuit, connection: load.connection, implied, with: implied.slice(1).map((_, k) => circuit + 2 * (k + 1)) }];
   });
+}
+
+/** Loads of one board that give the same circuit number ("7" and " 7 " alike; other text as written, trimmed). */
+export interface SharedCircuitNumber {
+  readonly circuit: string;
+  readonly names: readonly string[];
+}
+
+/**
+ * Circuit numbers two or more of the board's own loads give: one breaker position holds one circuit,
+ * so a schedule copied twice or a slip is likely; a warning, as a panel may be described loosely.
+ */
+export function sharedCircuitNumbers(loads: readonly LoadReading[]): SharedCircuitNumber[] {
+  const byNumber = new Map<string, { circuit: string; names: string[] }>();
+  for (const load of loads) {
+    if (load.origin !== 'board' || load.circuit === null) continue;
+    const number = circuitNumberOf(load.circuit);
+    const key = number !== null ? String(number) : load.circuit.trim();
+    const entry = byNumber.get(key) ?? { circuit: key, names: [] };
+    entry.names.push(load.name);
+    byNumber.set(key, entry);
+  }
+  return [...byNumber.values()].filter((e) => e.names.length > 1);
 }

@@ -40,6 +40,7 @@ import { termBoundFor } from './termBounds.js';
 import { installationInCondition, moveInstallationCircuits } from './applyMoves.js';
 import type { BoardVoltageComparison, CapacityExcess, CircuitMove, ConditionComparison, MoveTableRow, RebalanceReport } from './rebalanceResult.js';
 import { REBALANCE_CAUTIONS, REBALANCE_NOTES } from './rebalanceWording.js';
+import { movedCircuitNumber } from './movedCircuitNumber.js';
 import { bankInServiceWords, listedBanksInService } from '../analysis/banksInServiceWords.js';
 import { assertInstallationModel } from '../board/modelGuards.js';
 
@@ -127,6 +128,8 @@ interface Answer {
   readonly lowerBound: number | null;
   readonly proven: boolean;
   readonly exactRan: boolean;
+  /** Branch-and-bound stopped at the node budget before it could prove this answer. */
+  readonly budgetReached: boolean;
   readonly nodes: number;
 }
 
@@ -170,11 +173,13 @@ function answerWithin({ p, single, termBound }: Search, limit: number, o: Resolv
   if (single !== null && !exactRan)
     best = searchMeetInMiddle(p, best, { quantity: single, moveLimit: limit, rounds: MEET_ROUNDS, size: MEET_SIZE, seed: o.seed, tie });
   let proven = false;
+  let budgetReached = false;
   let nodes = 0;
   if (exactRan) {
     const exact = searchExact(p, { moveLimit: limit, nodeBudget: o.nodeBudget, incumbent: best, tie });
     best = exact.best;
     proven = exact.complete;
+    budgetReached = !exact.complete;
     nodes = exact.nodes;
   }
   let lowerBound: number | null = null;
@@ -187,17 +192,21 @@ function answerWithin({ p, single, termBound }: Search, limit: number, o: Resolv
   // A score that falls as a figure grows (only possible for a custom one) voids the bound.
   if (lowerBound !== null && lowerBound > best.score + tie) lowerBound = null;
   if (best.excess > tie) lowerBound = null;
-  return { best, lowerBound: lowerBound === null ? null : Math.min(lowerBound, best.score), proven, exactRan, nodes };
+  return { best, lowerBound: lowerBound === null ? null : Math.min(lowerBound, best.score), proven, exactRan, budgetReached, nodes };
 }
 
+/** |I2|/|I1| of a board that draws no current has no value (0/0): null, as on a board without the figure. */
+const idleRatioVoid = (f: ConditionFigures): ConditionFigures => (f.lineA.every((a) => a === 0) ? { ...f, currentUnbalancePercent: null } : f);
+
+/** The fast model's figures for the report (the search reads conditionFigures itself). */
 function figuresOf(layouts: readonly ConditionLayout[], p: AssignmentProblem, choice: Int32Array): ConditionFigures[] {
   const mags = magnitudesOf(sumQuantities(p, choice), new Float64Array(p.quantityCount));
-  return layouts.map((l) => conditionFigures(l, mags));
+  return layouts.map((l) => idleRatioVoid(conditionFigures(l, mags)));
 }
 
 function solvedFigures(name: string, board: string, result: BoardResult): ConditionFigures {
   const lineA = result.phases.map((ph) => ph.current.magnitude);
-  return {
+  return idleRatioVoid({
     name,
     board,
     lineA,
@@ -205,7 +214,7 @@ function solvedFigures(name: string, board: string, result: BoardResult): Condit
     neutralA: result.neutral ? result.neutral.current.magnitude : null,
     currentUnbalancePercent: result.unbalance ? result.unbalance.currentNegativePercent : null,
     voltageUnbalancePercent: result.unbalance ? result.unbalance.voltageFactorPercent : null,
-  };
+  });
 }
 
 /** Capacity below what no spread of the movable circuits can avoid is a bad study, whatever the move limit. */
@@ -300,7 +309,7 @@ function voltageComparisons(
  * @example
  * const { installation } = normaliseInstallation(parseInstallation(riser));
  * const report = rebalanceInstallation(installation, { boards: ['Floor 3'], measureAt: 'main' });
- * report.moves //=> [{ board: 'Floor 3', circuit: 1, name: 'Flat 3A', from: 'A-N', to: 'B-N' }]
+ * report.moves //=> [{ board: 'Floor 3', circuit: null, listPosition: 1, name: 'Flat 3A', from: 'A-N', to: 'B-N', circuitNumber: null }]
  */
 export function rebalanceInstallation(installation: Installation, study: unknown, options: RebalanceOptions = {}): RebalanceReport {
   assertInstallationModel(installation);
@@ -347,7 +356,8 @@ export function rebalanceInstallation(installation: Installation, study: unknown
       const c = chosen.best;
       // Its bound is for its own (smaller) move limit: the answer keeps the whole limit's.
       if (a.excess <= tie && (c.excess > tie || a.score < c.score - tie || (a.score <= c.score + tie && a.moves < c.moves)))
-        chosen = { ...answer, lowerBound: main.lowerBound, proven: main.lowerBound !== null && main.lowerBound >= a.score - tie };
+        // Likewise whether branch-and-bound over the whole limit stopped at its budget.
+        chosen = { ...answer, lowerBound: main.lowerBound, proven: main.lowerBound !== null && main.lowerBound >= a.score - tie, budgetReached: main.budgetReached };
     }
     if (resolved.nearBestPercent !== null) {
       const best = Math.min(main.best.score, ...rows.map((r) => r.answer.best.score));
@@ -374,7 +384,9 @@ export function rebalanceInstallation(installation: Installation, study: unknown
   built.slots.forEach((slot, i) => {
     const to = slot.options[choice[i]!]!;
     if (to !== slot.present) {
-      moves.push({ board: slot.boardName, circuit: slot.loadIndex + 1, name: slot.name, from: slot.present, to });
+      const board = tree.boards[tree.circuits[slot.flat]!.board]!;
+      const circuit = board.loads[slot.loadIndex]!.schedule?.circuit ?? null;
+      moves.push({ board: slot.boardName, circuit, listPosition: slot.loadIndex + 1, name: slot.name, from: slot.present, to, circuitNumber: movedCircuitNumber(board, circuit, to) });
       moveMap.set(slot.flat, to);
     }
   });
@@ -413,9 +425,18 @@ export function rebalanceInstallation(installation: Installation, study: unknown
   // Banks the file lists in service (harmonics.banks) are loads of their boards, as trivar solve has them.
   if (installation.banksInService?.length)
     notes.push(REBALANCE_NOTES.banksInService(listedBanksInService(installation).map((b) => bankInServiceWords(b))));
-  if (n === 0) notes.push(REBALANCE_NOTES.nothingToMove);
-  else if (moves.length === 0) notes.push(REBALANCE_NOTES.alreadyBest);
-  if (chosen.exactRan && !chosen.proven && chosen.nodes > o.nodeBudget) notes.push(REBALANCE_NOTES.budgetReached(o.nodeBudget));
+  const renumbered = moves.filter((m) => m.circuitNumber?.verdict === 'renumber');
+  if (renumbered.length) notes.push(REBALANCE_NOTES.renumber(renumbered.map((m) => ({ board: tree.boards.length > 1 ? m.board : null, circuit: m.circuit!, name: m.name }))));
+  const oneLine = tree.boards[0]!.phases.length === 1;
+  if (oneLine) notes.push(REBALANCE_NOTES.oneLine);
+  else if (n === 0) notes.push(REBALANCE_NOTES.nothingToMove);
+  else if (moves.length === 0) {
+    // No move within a limit below the circuit count may be the limit's doing: a search without it says.
+    const free = limit < n ? answerWithin(search, n, { ...o, method: 'local-search' }, tie, [main.best]).best : null;
+    if (free && free.excess <= tie && free.score < home.score - tie) notes.push(REBALANCE_NOTES.limitKeepsWiring(limit, free.moves, home.score, free.score));
+    else notes.push(REBALANCE_NOTES.alreadyBest);
+  }
+  if (chosen.exactRan && !chosen.proven && chosen.budgetReached) notes.push(REBALANCE_NOTES.budgetReached(o.nodeBudget));
   if (chosen.lowerBound === null && chosen.best.excess <= tie && n > 0) notes.push(REBALANCE_NOTES.noBound);
   const excesses = chosen.best.excess > tie ? capacityExcesses(built, resolved, choice, tie) : [];
   if (excesses.length) {
@@ -454,10 +475,12 @@ export function rebalanceInstallation(installation: Installation, study: unknown
       movable: tree.names.filter((_, b) => resolved.movableBoards[b]),
       measured: resolved.measuredBoards.map((b) => tree.names[b]!),
     },
+    oneLine,
     aim: o.objective ? 'custom' : resolved.aim,
     combine: resolved.combine,
     moveLimit: Number.isFinite(resolved.moveLimit) ? resolved.moveLimit : null,
-    method: chosen.proven && chosen.exactRan ? 'exact' : 'local-search',
+    method: chosen.exactRan ? 'exact' : 'local-search',
+    methodAsked: o.method,
     proven: chosen.proven,
     score: {
       before: home.score,
@@ -482,6 +505,8 @@ export function rebalanceInstallation(installation: Installation, study: unknown
       movable: built.slots.filter((s) => s.options.length > 1).length,
       pinned: resolved.pinned.size,
       nodes: main.nodes + (chosen === main ? 0 : chosen.nodes),
+      nodeBudget: chosen.exactRan ? o.nodeBudget : null,
+      budgetReached: chosen.exactRan && chosen.budgetReached,
     },
     notes,
     cautions: REBALANCE_CAUTIONS,

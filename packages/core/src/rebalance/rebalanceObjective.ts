@@ -52,7 +52,7 @@ export interface ConditionFigures {
   readonly lineA: readonly number[];
   readonly largestLineA: number;
   readonly neutralA: number | null;
-  /** |I2|/|I1|, %. */
+  /** |I2|/|I1|, %; null on a board with fewer than three lines, and in a report's figures of a board drawing no current (0/0). */
   readonly currentUnbalancePercent: number | null;
   /** |V2|/|V1| at the board, %. */
   readonly voltageUnbalancePercent: number | null;

@@ -7,16 +7,21 @@ import type { ConnectionSpec } from '../board/boardSchema.js';
 import type { AimWeights, ConditionFigures } from './rebalanceObjective.js';
 import type { VoltageLimits } from '../board/conventions/voltageLimits.js';
 import type { VoltageCheck } from '../analysis/voltageCheck.js';
+import type { MovedCircuitNumber } from './movedCircuitNumber.js';
 
 /** One line of the work order. */
 export interface CircuitMove {
   /** The board the circuit is on. */
   readonly board: string;
+  /** The file's circuit number (`circuit:`) as written; null where the file gives none. */
+  readonly circuit: string | null;
   /** Position of the circuit in its board's `loads` list in the file, counted from 1. */
-  readonly circuit: number;
+  readonly listPosition: number;
   readonly name: string;
   readonly from: ConnectionSpec;
   readonly to: ConnectionSpec;
+  /** What the move does to the circuit number (its breaker takes another position); null where the file gives no number. */
+  readonly circuitNumber: MovedCircuitNumber | null;
 }
 
 /** One condition read at one measured board's incomer (a single board: its incomer). */
@@ -80,18 +85,45 @@ export interface CapacityExcess {
   readonly overA: number;
 }
 
+/** One board's neutral with harmonics (the harmonic study at the file's loads), now and after the moves. */
+export interface HarmonicNeutralComparison {
+  readonly board: string;
+  readonly ratingA: number | null;
+  readonly before: HarmonicNeutralFigures;
+  readonly after: HarmonicNeutralFigures;
+}
+
+export interface HarmonicNeutralFigures {
+  /** rms of every order, A: what heats the conductor. */
+  readonly rmsA: number;
+  /** rms of the triplen orders (3, 9, 15…), A: rebalancing does not move them. */
+  readonly triplenA: number;
+  /** rms against the neutral's rating, %; null without a rating. */
+  readonly loadingPercent: number | null;
+}
+
 export interface RebalanceReport {
   /** The board, or the installation (its name) when it has several boards. */
   /** `phaseNames`: how the file names phases; moves stay in A/B/C here, reports relabel them. */
   readonly board: { readonly name: string; readonly system: string; readonly phaseNames?: PhaseNaming };
   /** Every board (main board first, then the file's order), those whose circuits could move, and those whose incomers the score reads. */
   readonly boards: { readonly all: readonly string[]; readonly movable: readonly string[]; readonly measured: readonly string[] };
+  /**
+   * True on a single-phase supply: one line carries every circuit, so there is nothing to rebalance
+   * (the text report says so and shows no scores; the figures here are the board as it stands).
+   */
+  readonly oneLine: boolean;
   /** The weights of the built-in score, or `custom` for a caller's objective. */
   readonly aim: AimWeights | 'custom';
   readonly combine: 'worst' | 'weighted';
   readonly moveLimit: number | null;
-  /** `exact`: branch-and-bound ran to the end; `local-search`: the best found, with its bound. */
+  /**
+   * The search that gave the answer: `exact` when branch-and-bound ran (`proven`, or stopped at its node
+   * budget: `search.budgetReached`), `local-search` when only the local search ran (the best found, with its bound).
+   */
   readonly method: 'exact' | 'local-search';
+  /** The method the caller asked for (`auto` chooses by the number of movable circuits). */
+  readonly methodAsked: 'auto' | 'exact' | 'local-search';
   readonly proven: boolean;
   /** Scores in the fast model (lower is better; A for current figures, % for unbalance figures). */
   readonly score: {
@@ -120,8 +152,18 @@ export interface RebalanceReport {
     readonly circuits: number;
     readonly movable: number;
     readonly pinned: number;
+    /** Branch-and-bound nodes visited, over every search the answer and its table needed. */
     readonly nodes: number;
+    /** The node budget of each branch-and-bound search; null when none ran. */
+    readonly nodeBudget: number | null;
+    /** True when the branch-and-bound search for the answer stopped at its budget (the answer is then the best found). */
+    readonly budgetReached: boolean;
   };
+  /**
+   * Files with harmonic data (`withHarmonicNeutral`): each board's neutral rms now and after the moves.
+   * The condition figures above are the fundamental only. Absent otherwise.
+   */
+  readonly harmonicNeutral?: readonly HarmonicNeutralComparison[];
   /** Facts about this answer worth reading (nothing to move, re-solve disagreement...). */
   readonly notes: readonly string[];
   readonly cautions: readonly string[];

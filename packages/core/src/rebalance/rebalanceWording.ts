@@ -3,6 +3,7 @@ import type { PhaseLabel } from '../board/conventions/phaseNames.js';
 import { bandWords } from '../board/conventions/voltageLimits.js';
 import type { VoltageCheck } from '../analysis/voltageCheck.js';
 import { BANKS_IN_SERVICE_BASIS } from '../analysis/banksInServiceWords.js';
+import { groupDigits } from '../_internal/groupDigits.js';
 
 const VERDICT_WORDS: Record<VoltageCheck['verdict'], string> = {
   within: 'within',
@@ -18,6 +19,9 @@ function extremesWords(check: VoltageCheck): string {
   return check.verdict === 'under' ? low : check.verdict === 'over' ? high : `${low}, ${high}`;
 }
 
+/** A score with the digits the text report gives it (a near-zero neutral still shows). */
+const scoreWords = (x: number) => (Math.abs(x) >= 100 ? x.toFixed(1) : Math.abs(x) >= 1 ? x.toFixed(2) : x.toFixed(3));
+
 export const REBALANCE_CAUTIONS: readonly string[] = [
   'Moving a circuit is work on live-capable equipment: isolate and prove dead first; the work is for a qualified electrician under local codes and licensed practice.',
   'Circuits that share a neutral (multi-wire branch circuits) must stay on different lines, and keep their common disconnect: check before moving either.',
@@ -28,14 +32,37 @@ export const REBALANCE_CAUTIONS: readonly string[] = [
 export const REBALANCE_NOTES = {
   banksInService: (banks: readonly string[]) =>
     `Capacitor banks in service in every solve, now and after, ${BANKS_IN_SERVICE_BASIS}: ${banks.join('; ')}. They stay as they are: nothing of a three-phase bank moves.`,
+  /** Moved circuits whose number the usual North-American numbering ties to the line they leave. */
+  renumber: (moved: readonly { board: string | null; circuit: string; name: string }[]) =>
+    `${moved.map((m) => `"${m.name}"${m.board ? ` on "${m.board}"` : ''} (circuit ${m.circuit})`).join(', ')} ${moved.length === 1 ? 'takes a breaker position' : 'take breaker positions'} on ${moved.length === 1 ? 'its new line' : 'their new lines'}: the usual panel numbering ties each circuit number to a line, so ${moved.length === 1 ? 'it needs the number' : 'they need the numbers'} of the new position${moved.length === 1 ? '' : 's'}. A file rewritten with these moves keeps the old number${moved.length === 1 ? '' : 's'}; re-assign ${moved.length === 1 ? 'it' : 'them'} there and on the circuit chart.`,
+  oneLine: 'A single-phase supply has one line: every circuit is on it and there is no other to move one to, so there is nothing to rebalance.',
+  /** Loads with harmonic spectra: the neutral figures are the fundamental's; the rms from the harmonic study, where it ran. */
+  harmonicNeutral: (
+    neutrals: readonly { board: string; ratingA: number | null; before: { rmsA: number; loadingPercent: number | null }; after: { rmsA: number; loadingPercent: number | null } }[],
+    withBoard: boolean,
+  ) => {
+    const head =
+      'The loads have harmonic spectra: the neutral currents above are the fundamental only. The triplen orders (3, 9, 15…) add in the neutral whatever line a circuit is on, so moving circuits leaves them where they are.';
+    if (!neutrals.length) return `${head} Run trivar harmonics on the file, and on it after the moves, for the neutral's rms.`;
+    const each = neutrals.map((n) => {
+      const load = n.before.loadingPercent !== null && n.after.loadingPercent !== null && n.ratingA !== null
+        ? ` (${n.before.loadingPercent.toFixed(0)} % → ${n.after.loadingPercent.toFixed(0)} % of its ${n.ratingA.toFixed(0)} A rating${n.after.loadingPercent > 100 ? (n.before.loadingPercent > 100 ? ': still above it' : ': above it') : ''})`
+        : '';
+      return `${withBoard ? `"${n.board}" ` : ''}${n.before.rmsA.toFixed(1)} → ${n.after.rmsA.toFixed(1)} A${load}`;
+    });
+    return `${head} The harmonic study at the file's own loads gives the neutral's rms now → after: ${each.join('; ')}.`;
+  },
   nothingToMove: 'No circuit on this board can move (three-phase, pinned, or the supply offers no other connection).',
   alreadyBest: 'The present wiring is already the best found: no moves.',
+  /** No move within the limit, where more moves would lower the score (fast model). */
+  limitKeepsWiring: (limit: number, moves: number, now: number, free: number) =>
+    `${limit === 0 ? 'The move limit of 0 allows no move' : `No move within the limit of ${limit} lowers the score`}, so the present wiring stays; without the limit, ${moves} move${moves === 1 ? '' : 's'} would take the score from ${scoreWords(now)} to ${scoreWords(free)} (fast model).`,
   solvedNotBetter: (before: number, after: number) =>
     `The network re-solve scores the moved board ${after.toFixed(3)} against ${before.toFixed(3)} now: not better, so keep the present wiring (voltage drop or load models differ from the fast model here).`,
   modelDiffers: (percent: number) =>
     `The network re-solve differs from the fast model by up to ${percent.toFixed(1)} % of a line current (impedances and load models); the solved figures are the ones to trust.`,
   budgetReached: (nodes: number) =>
-    `The exact search stopped at its budget of ${nodes} nodes; the answer is the best found and its gap comes from the lower bound.`,
+    `The exact search stopped at its budget of ${groupDigits(nodes)} nodes; the answer is the best found and its gap comes from the lower bound.`,
   noBound: 'The custom score broke the rule that it never falls when a figure grows, so no lower bound is reported.',
   capacityNotMet: (moveLimit: number, provenImpossible: boolean, excesses: readonly string[]) =>
     `${provenImpossible ? 'No assignment' : 'No assignment found'} with at most ${moveLimit} move${moveLimit === 1 ? '' : 's'} keeps every line within its capacity${provenImpossible ? ' (proven by the lower bound)' : ''}; this answer exceeds it least: ${excesses.join('; ')}.`,

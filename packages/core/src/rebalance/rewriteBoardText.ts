@@ -12,9 +12,9 @@ import { assertText } from '../board/modelGuards.js';
 /** The new connection in the naming the file wrote the old one in (L1-N for a file in L1/L2/L3). */
 const asWritten = (old: unknown, to: string) => spellIn((typeof old === 'string' && readPhaseTerm(old)?.naming) || 'A/B/C', to);
 
-type Move = Pick<CircuitMove, 'circuit' | 'name' | 'to'> & { readonly board?: string };
+type Move = Pick<CircuitMove, 'listPosition' | 'name' | 'to'> & { readonly board?: string };
 
-const mismatch = (m: Move) => new Error(`rewriteBoardText: circuit ${m.circuit} is not "${m.name}"${m.board ? ` on board "${m.board}"` : ''} in this text`);
+const mismatch = (m: Move) => new Error(`rewriteBoardText: load ${m.listPosition} is not "${m.name}"${m.board ? ` on board "${m.board}"` : ''} in this text`);
 
 interface JsonBoard {
   name?: string;
@@ -41,7 +41,7 @@ function yamlLoads(doc: ReturnType<typeof parseDocument>, m: Move) {
  * @param text the board or installation file as read (YAML or JSON).
  * @param moves the work order of a rebalancing report.
  * @example
- * rewriteBoardText('loads:\n  - { name: Kettle, connection: A-N, kW: 2 }\n', [{ circuit: 1, name: 'Kettle', from: 'A-N', to: 'B-N' }])
+ * rewriteBoardText('loads:\n  - { name: Kettle, connection: A-N, kW: 2 }\n', [{ listPosition: 1, name: 'Kettle', to: 'B-N' }])
  * //=> 'loads:\n  - { name: Kettle, connection: B-N, kW: 2 }\n'
  */
 export function rewriteBoardText(text: string, moves: readonly Move[]): string {
@@ -49,7 +49,7 @@ export function rewriteBoardText(text: string, moves: readonly Move[]): string {
   if (/^\s*\{/.test(text)) {
     const file = JSON.parse(text) as JsonBoard & { boards?: JsonBoard[] };
     for (const m of moves) {
-      const load = jsonLoads(file, m)[m.circuit - 1];
+      const load = jsonLoads(file, m)[m.listPosition - 1];
       if (!load || load.name !== m.name) throw mismatch(m);
       load.connection = asWritten(load.connection, m.to);
     }
@@ -59,7 +59,7 @@ export function rewriteBoardText(text: string, moves: readonly Move[]): string {
   for (const m of moves) {
     const loads = yamlLoads(doc, m);
     if (!isSeq(loads)) throw new Error('rewriteBoardText: the text has no loads list');
-    const load = loads.items[m.circuit - 1];
+    const load = loads.items[m.listPosition - 1];
     if (!isMap(load) || load.get('name') !== m.name) throw mismatch(m);
     load.set('connection', asWritten(load.get('connection'), m.to));
   }
