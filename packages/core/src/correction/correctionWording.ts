@@ -255,18 +255,25 @@ export const selectionWording = {
   typicalNote:
     'typical ratings, not any vendor\'s range: check the real ratings, tolerance and discharge time of the units you buy',
   userNote: 'units from the catalogue given',
-  noUnit: (branches: readonly PhaseLabel[], neededV: number, nominalV: number, floating: boolean, catalogue: string, floorPercent: number, ratings: readonly number[]) => {
-    const highestV = nominalV / Math.sqrt(floorPercent / 100);
+  /**
+   * @param ratings the catalogue's ratings, each with its frequency factor f/f_r (a 60 Hz unit on a 50 Hz
+   *   board gives 5/6 of its output), which the delivery rule counts as well as (V/V_r)²
+   */
+  noUnit: (branches: readonly PhaseLabel[], neededV: number, nominalV: number, floating: boolean, catalogue: string, floorPercent: number, units: readonly { readonly ratedV: number; readonly hzFactor: number }[]) => {
+    const ratings = [...new Set(units.map((u) => u.ratedV))].sort((a, b) => a - b);
     // The way out the user controls: the lowest rating the voltage rule allows, and the floor that would take it.
     const nearest = ratings.find((v) => v >= neededV);
-    const delivers = nearest === undefined ? 0 : 100 * (nominalV / nearest) ** 2;
+    const hzFactor = units.find((u) => u.ratedV === nearest)?.hzFactor ?? units[0]?.hzFactor ?? 1;
+    const highestV = nominalV * Math.sqrt(hzFactor / (floorPercent / 100));
+    const delivers = nearest === undefined ? 0 : 100 * (nominalV / nearest) ** 2 * hzFactor;
+    const frequencyWords = hzFactor === 1 ? "" : ", the frequency counted";
     const remedy =
       neededV > highestV
         ? `; no rating meets both at this voltage: only a lower deliveryFloorPercent in the correction does (${Math.floor(100 * (nominalV / neededV) ** 2)} for a ${f1(neededV)} V unit)`
         : nearest !== undefined && Math.floor(delivers) >= 1
-        ? `; the nearest, ${nearest} V, delivers ${delivers.toFixed(1)} % there (a deliveryFloorPercent of ${Math.floor(delivers)} in the correction accepts it), or give a catalogue with units rated ${f1(neededV)}–${f1(highestV)} V`
+        ? `; the nearest, ${nearest} V, delivers ${delivers.toFixed(1)} % there${frequencyWords} (a deliveryFloorPercent of ${Math.floor(delivers)} in the correction accepts it), or give a catalogue with units rated ${f1(neededV)}–${f1(highestV)} V`
         : `; give a catalogue with units rated ${f1(neededV)}–${f1(highestV)} V`;
-    return `no unit in the ${catalogue} fits ${branches.join(', ')}: a unit there must be rated at least ${f1(neededV)} V and still deliver ${floorPercent.toFixed(0)} % of its nameplate at ${floating ? `the ${f1(nominalV)} V across it as solved (the star point floats)` : `the nominal ${f1(nominalV)} V across it`}, i.e. be rated at most ${f1(highestV)} V; the catalogue has ${ratings.map((v) => `${v}`).join(', ')} V${remedy}`;
+    return `no unit in the ${catalogue} fits ${branches.join(', ')}: a unit there must be rated at least ${f1(neededV)} V and still deliver ${floorPercent.toFixed(0)} % of its nameplate at ${floating ? `the ${f1(nominalV)} V across it as solved (the star point floats)` : `the nominal ${f1(nominalV)} V across it`}${hzFactor === 1 ? '' : `, its output scaled by ${f3(hzFactor)} for running at the board's frequency instead of its rated one`}, i.e. be rated at most ${f1(highestV)} V; the catalogue has ${ratings.map((v) => `${v}`).join(', ')} V${remedy}`;
   },
   costStatement: (unitCostKvar: number) =>
     `least cost = nameplate kvar + ${unitCostKvar} kvar-equivalent per unit bought, among the builds that best fit the tolerance window, the controller outputs and the minimum step`,

@@ -298,6 +298,7 @@ export function selectBankUnits(sized: SizedEquipment, options?: SelectBankUnits
     elementCapacitanceUF: c.elementF * 1e6,
     deliveredFraction: Math.min(...indices.map((i) => (branchInfo[i]!.b.appliedV / c.unit.ratedV) ** 2 * (hz / c.unit.ratedHz))),
   });
+  const frequencyWarned = new Set<string>();
   const makeStep = (part: BankStep['part'], c: UnitChoice, count: number, indices: readonly number[], switched: boolean): BankStep => {
     const three = indices.length === 3;
     const perBranchF = count * c.elementF;
@@ -306,8 +307,11 @@ export function selectBankUnits(sized: SizedEquipment, options?: SelectBankUnits
     const slot = branchInfo[indices[0]!]!.slot;
     const lineToLine = slot.to === 'N' || slot.to === 'star' ? slot.vNominal * Math.sqrt(3) : slot.vNominal;
     const kind = three ? 'three-phase' : 'single-phase';
-    if (c.unit.ratedHz !== hz && c.index !== null)
-      warn('unit-frequency', warningText.unitFrequency(c.unit.name, c.unit.ratedHz, hz), `catalogue[${c.index}].ratedHz`, c.unit.ratedHz, hz);
+    // Units rated for another frequency (a catalogue's, or a typical one of another practice, --practice) are said once each.
+    if (c.unit.ratedHz !== hz && !frequencyWarned.has(c.unit.name)) {
+      frequencyWarned.add(c.unit.name);
+      warn('unit-frequency', warningText.unitFrequency(c.unit.name, c.unit.ratedHz, hz), c.index === null ? 'practice' : `catalogue[${c.index}].ratedHz`, c.unit.ratedHz, hz);
+    }
     return {
       output: switched ? ++output : null,
       part,
@@ -348,7 +352,7 @@ export function selectBankUnits(sized: SizedEquipment, options?: SelectBankUnits
       requiredRatedV,
       appliedV,
       floorV,
-      message: selectionWording.noUnit(names.map(label), requiredRatedV, floorV, floating, catalogueTitle, floor * 100, [...new Set(all.map((u) => u.unit.ratedV))].sort((a, b) => a - b)),
+      message: selectionWording.noUnit(names.map(label), requiredRatedV, floorV, floating, catalogueTitle, floor * 100, all.map((u) => ({ ratedV: u.unit.ratedV, hzFactor: hz / u.unit.ratedHz }))),
     };
   }
   if (sized.branches.some((b) => b.element === 'reactor')) warn('reactors-not-selected', warningText.reactorsNotSelected);
