@@ -172,6 +172,17 @@ describe('correct report wording', () => {
     expect(correctBoard(board, { arrangement: 'balancing-compensator' }).status).toBe('already-meets-target');
   });
 
+  it("a compensator whose fixed reactors make the lines lag at light load says so (the light-load check judged leading only)", () => {
+    const { board } = boardOf('examples/corner-bakery.yaml');
+    const r = correctBoard(board, { arrangement: 'balancing-compensator', lightLoad: { fraction: 0.1 } });
+    const w = r.warnings.find((x) => x.code === 'light-load-lagging')!;
+    expect(w.message).toMatch(/^at light load the fixed part, \d+\.\d\d kvar inductive net \(its reactors stay connected\), leaves line A at PF 0\.\d{3} lagging \(0\.\d{3} without the equipment\)/);
+    expect(r.verification.lightLoad!.fixedKvar).toBeLessThan(0);
+    // A plain bank's fixed part is capacitive: no such warning.
+    const star = correctBoard(board, { arrangement: 'star-bank', lightLoad: { fraction: 0.1 } });
+    expect(star.warnings.map((x) => x.code)).not.toContain('light-load-lagging');
+  });
+
   it('a board whose bank does not change the balance notably gets no such note', () => {
     const { board } = boardOf('examples/riverside-cold-store.yaml');
     const r = correctBoard(board, { arrangement: 'star-bank' });

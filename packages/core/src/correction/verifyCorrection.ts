@@ -210,6 +210,15 @@ export function verifyCorrection(board: Board, options: VerifyCorrectionOptions)
     const fixedKvar = branchSizings(fixedOnly, lightCorrected, lightAfter).reduce((sum, b) => sum + b.kvarAtAppliedV, 0);
     const lightRise = voltageRise(board, fixedKvar, lightBefore, lightAfter, riseLimit);
     if (leadingLines.length) warn('light-load-leading', warningText.lightLoadLeading(leadingLines.map(label)));
+    // A fixed part that is inductive (a compensator's reactors stay connected) makes lines lag more at light load:
+    // said where a line then lags below the target and more than it did without the equipment.
+    if (fixedKvar < 0) {
+      const lagging = lightJudged.phases.flatMap((p, k) => {
+        const b = lightJudgedBefore.phases[k]!;
+        return p.kVA > 0 && p.kvar > b.kvar + TARGET_SLACK * p.kVA && p.pf !== null && p.pf < target.pf ? [{ phase: label(p.phase), pf: p.pf, before: b.pf }] : [];
+      });
+      if (lagging.length) warn('light-load-lagging', warningText.lightLoadLagging(-fixedKvar, lagging), -fixedKvar, null);
+    }
     if (lightRise.flagged) warn('voltage-rise-light-load', warningText.voltageRise('the fixed part at light load', Math.max(lightRise.estimatePercent ?? -Infinity, lightRise.solvedPercent), riseLimit), lightRise.solvedPercent, riseLimit);
     lightLoad = {
       fraction: opts.lightLoad.fraction,
