@@ -13,6 +13,12 @@ const isBoardFile = isBoardExample(join(ROOT, 'examples'));
 const scratch = () => mkdtempSync(join(tmpdir(), 'trivar-report-'));
 
 describe('trivar report', () => {
+  it('--time-zone without --profile-data is refused (it reads only the interval data), not ignored', () => {
+    const r = runTrivar(['report', 'examples/riverside-cold-store.yaml', '--time-zone', 'Europe/Dublin']);
+    expect(r.code).toBe(2);
+    expect(r.stderr).toContain('--time-zone reads the times of the interval data: give --profile-data <csv> too');
+  });
+
   it('the loop below covers the installation example', () => {
     expect(allExamples).toContain('maple-court-riser.yaml');
     expect(allExamples.filter((f) => !isBoardFile(f)).length).toBeGreaterThanOrEqual(1);

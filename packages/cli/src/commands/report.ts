@@ -197,6 +197,8 @@ export async function runReport(file: string, options: ReportCommandOptions, io:
   const format = options.format ?? 'html';
   const out = options.output;
   if (format === 'md' && !out) throw new UsageError('a Markdown report writes its figures as SVG files beside it: give the report file with -o, e.g. -o board-report.md');
+  // As rebalance does: an option that only reads interval data is refused without the data, not silently ignored.
+  if (options.timeZone !== undefined && options.profileData === undefined) throw new UsageError('--time-zone reads the times of the interval data: give --profile-data <csv> too, or leave out --time-zone');
   const inputs = [file, ...(options.profileData ? [options.profileData] : []), ...(options.handFigures ? [options.handFigures] : [])];
   if (out) assertNotInput([out], inputs);
   const raw = readBoardText(await io.readSource(file));
