@@ -4,6 +4,9 @@
  * shows it as "fails check" — not "MEETS THE TARGET", "Warnings none" and exit 0 with the failure
  * only at the foot of the report.
  */
+import { mkdtempSync, readFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { runTrivar } from './runTrivar.js';
 
@@ -59,5 +62,19 @@ describe('the cost of a detuned bank', () => {
     expect(p).toBeGreaterThan(0);
     expect(r.selection.cost.value).toBeCloseTo(r.selection.nameplateKvar + 2 * r.selection.units + 2 * p * r.selection.nameplateKvar, 9);
     expect(r.selection.cost.statement).toContain(`the ${Math.round(100 * p)} % detuning reactors at 2 × their kvar`);
+  }, 120_000);
+});
+
+describe("the bank of the file's harmonics section", () => {
+  it('correct says the bank it sizes takes its place; the report says its results leave it out', () => {
+    const r = JSON.parse(runTrivar(['correct', offices, '--arrangement', 'star-bank', '--json']).stdout) as { warnings: { code: string; message: string; path: string }[] };
+    const w = r.warnings.find((x) => x.code === 'file-bank-replaced')!;
+    expect(w.path).toBe('harmonics.bank');
+    expect(w.message).toContain("the bank of the board file's harmonics section (160 kvar at 440 V, delta) is not on the board in this study");
+    const dir = mkdtempSync(join(tmpdir(), 'trivar-filebank-'));
+    expect(runTrivar(['report', offices, '--format', 'md', '-o', join(dir, 'r.md')]).code).toBe(0);
+    const md = readFileSync(join(dir, 'r.md'), 'utf8');
+    const results = md.slice(md.indexOf('## Results'));
+    expect(results).toMatch(/^The board as its loads are: the capacitor bank of the file's harmonics section \(steps 40 \+ 40 \+ 40 \+ 40 kvar, 440 V units, delta\) is not in these figures/m);
   }, 120_000);
 });

@@ -350,7 +350,19 @@ export interface HarmonicCheckWording {
  * @param studied `correctBoard(board, study)` where the caller has it (a comparison made it), not made again
  */
 export function correctWithHarmonics(spec: HarmonicsBoardSpec, board: Board, study: unknown, studied?: CorrectionReport): HarmonicCorrectionReport {
-  return correctWithBankCheck(board, study, spec.harmonics?.detuning, boardBankChecker(spec, board), { file: 'board file' }, studied);
+  const checked = correctWithBankCheck(board, study, spec.harmonics?.detuning, boardBankChecker(spec, board), { file: 'board file' }, studied);
+  const fileBank = spec.harmonics?.bank;
+  if (!fileBank || !checked.selection?.units) return checked;
+  // The file's bank is not on the board the study sizes for (normaliseBoard leaves it out): the bank sized here takes its place.
+  const total = (fileBank.fixedKvar ?? 0) + fileBank.stepsKvar.reduce((s, q) => s + q, 0);
+  const note = {
+    code: 'file-bank-replaced',
+    message: `the bank of the board file's harmonics section (${total} kvar at ${fileBank.ratedV} V, ${fileBank.connection}) is not on the board in this study: the bank sized here is meant to take its place, and the harmonic check has it instead; both together on the board is not what this study checked`,
+    path: 'harmonics.bank',
+    value: total,
+    threshold: null,
+  };
+  return { ...checked, warnings: [...checked.warnings, note] };
 }
 
 /**

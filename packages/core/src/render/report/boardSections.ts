@@ -280,8 +280,20 @@ export function resultBlocks(result: BoardResult, options: ResultBlockOptions = 
   return blocks;
 }
 
-export function resultsSection(result: BoardResult): ReportSection {
-  return { id: 'results', title: 'Results', blocks: resultBlocks(result) };
+/**
+ * @param fileBank the bank of the file's harmonics section, where it has one: these results are the board
+ *   without it (the harmonic study switches it in), which the section says first
+ */
+export function resultsSection(result: BoardResult, fileBank?: { readonly stepsKvar: readonly number[]; readonly fixedKvar?: number; readonly ratedV: number; readonly connection: string }): ReportSection {
+  const note: ReportBlock[] = fileBank
+    ? [
+        {
+          kind: 'paragraph',
+          text: `The board as its loads are: the capacitor bank of the file's harmonics section (${[...(fileBank.fixedKvar ? [`${fileBank.fixedKvar} kvar fixed`] : []), `steps ${fileBank.stepsKvar.join(' + ')} kvar`].join(', ')}, ${fileBank.ratedV} V units, ${fileBank.connection}) is not in these figures; the harmonic study has it in, every step on.`,
+        },
+      ]
+    : [];
+  return { id: 'results', title: 'Results', blocks: [...note, ...resultBlocks(result)] };
 }
 
 export function openNeutralSection(result: BoardResult): ReportSection | null {

@@ -97,7 +97,8 @@ export function placeSection(sections: ReportSection[], section: ReportSection):
 export function buildBoardReport(input: BoardReportInput): ReportDocument {
   const { spec, result } = input;
   const correction = input.correction ?? null;
-  const sections: ReportSection[] = [installationSection(spec, result), scheduleSection(spec, result), resultsSection(result)];
+  const fileBank = (spec as { harmonics?: { bank?: Parameters<typeof resultsSection>[1] } }).harmonics?.bank;
+  const sections: ReportSection[] = [installationSection(spec, result), scheduleSection(spec, result), resultsSection(result, fileBank)];
   const openNeutral = openNeutralSection(result);
   if (openNeutral) sections.push(openNeutral);
   const comparison = input.correctionComparison ?? null;
