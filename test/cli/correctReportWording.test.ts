@@ -183,6 +183,14 @@ describe('correct report wording', () => {
     expect(star.warnings.map((x) => x.code)).not.toContain('light-load-lagging');
   });
 
+  it('the apparent power released is named where it is measured: at the board and at the source, as the JSON has both', () => {
+    const r = runTrivar(['correct', `${ROOT}examples/hillside-workshop.yaml`, '--arrangement', 'delta-bank']);
+    const json = JSON.parse(runTrivar(['correct', `${ROOT}examples/hillside-workshop.yaml`, '--arrangement', 'delta-bank', '--json']).stdout) as { verification: { releasedKVA: { vector: number; source: number } } };
+    const rel = json.verification.releasedKVA;
+    expect(r.stdout).toContain(`apparent power at the board  releases ${rel.vector.toFixed(2)} kVA vector`);
+    expect(r.stdout).toContain(`apparent power at the source releases ${rel.source.toFixed(2)} kVA`);
+  });
+
   it('a board whose bank does not change the balance notably gets no such note', () => {
     const { board } = boardOf('examples/riverside-cold-store.yaml');
     const r = correctBoard(board, { arrangement: 'star-bank' });

@@ -221,7 +221,9 @@ function boardLines(v: CorrectionVerification): string {
   out.push(`largest voltage drop         ${fixed(worstDrop(v.before), 2)} % → ${fixed(worstDrop(v.after), 2)} %`);
   const rel = v.releasedKVA;
   const released = (x: number, what: string) => signed(x, 2, `kVA ${what}`, 'releases', 'draws more by');
-  out.push(`apparent power              ${released(rel.vector, 'vector')}${rel.effective === null ? '' : `, ${released(rel.effective, 'effective')}`}`);
+  // Measured at the board, as every row here; the HTML report quotes the source's figure: both are shown, each named.
+  out.push(`apparent power at the board  ${released(rel.vector, 'vector')}${rel.effective === null ? '' : `, ${released(rel.effective, 'effective')}`}`);
+  out.push(`apparent power at the source ${signed(rel.source, 2, 'kVA', 'releases', 'draws more by')}`);
   return out.map((l) => `  ${l}`).join('\n');
 }
 
