@@ -13,6 +13,18 @@ const isBoardFile = isBoardExample(join(ROOT, 'examples'));
 const scratch = () => mkdtempSync(join(tmpdir(), 'trivar-report-'));
 
 describe('trivar report', () => {
+  it("the correction section carries the controller settings trivar correct prints (CT, C/k and its setting, band, delays)", () => {
+    const dir = mkdtempSync(join(tmpdir(), 'trivar-ctl-'));
+    expect(runTrivar(['report', 'examples/riverside-cold-store.yaml', '--format', 'md', '-o', join(dir, 'r.md')]).code).toBe(0);
+    const md = readFileSync(join(dir, 'r.md'), 'utf8');
+    const c = (JSON.parse(runTrivar(['correct', 'examples/riverside-cold-store.yaml', '--json']).stdout) as { selection: { controller: { ctPrimaryA: number; responseThresholdA: number; responseSettingA: number; outputsUsed: number; outputs: number; switchingDelayS: number } } }).selection.controller;
+    expect(md).toContain(`- **Controller outputs:** ${c.outputsUsed} of ${c.outputs} used`);
+    expect(md).toContain(`- **Current transformer:** ${c.ctPrimaryA}/5 A`);
+    expect(md).toContain(`- **Response threshold (C/k):** ${c.responseThresholdA.toFixed(3)} A for the smallest step`);
+    expect(md).toContain(`set ${c.responseSettingA.toFixed(3)} A (0.65 × C/k)`);
+    expect(md).toContain(`- **Switching:** delay ${c.switchingDelayS} s`);
+  });
+
   it('--time-zone without --profile-data is refused (it reads only the interval data), not ignored', () => {
     const r = runTrivar(['report', 'examples/riverside-cold-store.yaml', '--time-zone', 'Europe/Dublin']);
     expect(r.code).toBe(2);

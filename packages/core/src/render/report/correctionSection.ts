@@ -3,7 +3,7 @@
  * before/after, diagrams) and the resonance check it implies. Reads only the
  * study's plain result, so the study can grow without touching the report.
  */
-import type { CorrectionReport } from '../../correction/correctionResult.js';
+import type { ControllerSettings, CorrectionReport } from '../../correction/correctionResult.js';
 import type { CorrectionComparison } from '../../correction/compareCorrections.js';
 import type { HarmonicCorrectionReport } from '../../harmonics/correctWithHarmonics.js';
 import { correctionComparisonBlocks } from './correctionComparisonBlocks.js';
@@ -67,6 +67,22 @@ function equipmentTable(report: CorrectionReport): ReportBlock | null {
 }
 
 /** Where the target is measured, when that is not the equipment's board, and the PF reached there. */
+/** What the installer sets on the bank's controller (the text report's Controller lines, as facts). */
+function controllerFacts(c: ControllerSettings): ReportBlock {
+  const band = `PF at least ${fixed(c.targetBand.minPf, 3)} lagging${c.targetBand.maxPf === null ? (c.targetBand.leadingAllowed ? ', leading allowed' : ', never leading') : `, at most ${fixed(c.targetBand.maxPf, 3)} lagging`}`;
+  const amps = (a: number) => (Number.isInteger(a) ? String(a) : fixed(a, 1));
+  return {
+    kind: 'facts',
+    items: [
+      ['Controller outputs', `${c.outputsUsed} of ${c.outputs} used; ${c.measurement === 'one-line' ? 'balanced steps, read from one CT' : 'steps serving single lines: the controller measures every line (a CT on each)'}`],
+      ['Current transformer', `${amps(c.ctPrimaryA)}/${amps(c.ctSecondaryA)} A${c.ctChosen ? ' (the next standard primary above 1.25 × the largest line current; use yours if it differs)' : ''}`],
+      ['Response threshold (C/k)', `${fixed(c.responseThresholdA, 3)} A for the smallest step (${fixed(c.smallestStepKvar, 2)} kvar at nominal voltage); set ${fixed(c.responseSettingA, 3)} A (${c.settingFraction} × C/k)`],
+      ['Power-factor band', band],
+      ['Switching', `delay ${c.switchingDelayS} s; a step is switched on again no sooner than ${c.reconnectionDelayS} s after it went off (discharge time ${c.dischargeTimeS} s)`],
+    ],
+  };
+}
+
 function meteringFacts(report: CorrectionReport): [string, string][] {
   const m = report.verification.metering;
   if (!m) return [];
@@ -145,6 +161,8 @@ export function correctionSection(report: CorrectionReport, comparison: Correcti
   if (report.reasons.length) blocks.push({ kind: 'list', tone: 'warning', items: report.reasons });
   const equipment = equipmentTable(report);
   if (equipment) blocks.push(equipment);
+  const controller = report.selection?.controller;
+  if (controller) blocks.push(controllerFacts(controller));
   blocks.push({
     kind: 'table',
     caption: 'Each line before and after',
