@@ -47,8 +47,14 @@ function row(set: SequenceSet<Phasor>, unit: 'V' | 'A', y0: number, sequence: 'A
     const cy = y0 + 40 + panelRadius + 4;
     const centre = { x: cx, y: cy };
     parts.push(`<circle${attrs({ cx, cy, r: panelRadius, fill: 'none', stroke: GRID_COLOUR, 'stroke-width': 0.6, 'stroke-dasharray': '1 3' })}/>`);
-    const heading = `${c} ${sig3(set[c].magnitude)} ${unit}`;
+    const magnitude = set[c].magnitude;
+    const heading = magnitude === 0 ? `${c}: none` : `${c} ${sig3(magnitude)} ${unit}`;
     parts.push(`<text${attrs({ x: cx, y: y0 + 34, 'font-size': 12, fill: INK, 'text-anchor': 'middle' })}>${escapeXml(heading)}</text>`);
+    // A component of zero (round-off read as none, noiseFloor.ts) has no phasors to draw or label: said in the panel instead.
+    if (magnitude === 0) {
+      parts.push(`<text${attrs({ class: 'phasor-label empty-component', 'data-component': c, x: cx, y: cy + 4, 'font-size': 11, fill: MUTED_INK, 'text-anchor': 'middle' })}>none</text>`);
+      return;
+    }
     const phasors = sequencePhasors(set[c], c, sequence);
     const tips: Point[] = [];
     const requests: LabelRequest[] = [];
