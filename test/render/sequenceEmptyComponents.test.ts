@@ -14,7 +14,7 @@ describe('sequence diagram of a balanced board', () => {
   });
   const svg = renderSequenceDiagram(result);
 
-  it('says "none" in the empty panels and draws only the positive sequence', () => {
+  it('says "none" in the empty panels, with no "0.000" heading', () => {
     expect(result.sequences!.current.negative.magnitude).toBe(0);
     const empty = [...svg.matchAll(/class="phasor-label empty-component" data-component="(\w+)"/g)].map((m) => m[1]);
     expect(empty.length).toBeGreaterThanOrEqual(2);
