@@ -33,3 +33,24 @@ describe('an idle board in a harmonic study', () => {
     expect(house.powerFactor.true).toBeGreaterThan(0.9);
   });
 });
+
+describe('the neutral sizing note', () => {
+  it('is given where triplens are a real share of the neutral, and left out where they are not', () => {
+    const withTriplens = studyInstallationHarmonics({
+      name: 'office floor',
+      supply: { voltage: '400/230', frequencyHz: 50, transformer: { kVA: 250, impedancePercent: 4, xOverR: 3 } },
+      boards: [{ name: 'floor board', loads: [{ name: 'desks', connection: 'A-N', kW: 6, pf: 0.95, spectrum: 'switch-mode' }, { name: 'kettle', connection: 'B-N', kW: 2 }] }],
+    });
+    const n = withTriplens.boards[0]!.neutral!;
+    expect(n.triplenSharePercent!).toBeGreaterThan(10);
+    expect(n.practice).toMatch(/triplen currents of all three phases/);
+    const linear = studyInstallationHarmonics({
+      name: 'workshop',
+      supply: { voltage: '400/230', frequencyHz: 50, transformer: { kVA: 250, impedancePercent: 4, xOverR: 3 } },
+      boards: [{ name: 'bench board', loads: [{ name: 'heater', connection: 'A-N', kW: 6 }, { name: 'drive', connection: 'ABC-delta', kW: 11, pf: 0.9, spectrum: 'six-pulse-drive' }] }],
+    });
+    const m = linear.boards[0]!.neutral!;
+    expect(m.triplenSharePercent ?? 0).toBeLessThan(10);
+    expect(m.practice).toBeNull();
+  });
+});

@@ -65,7 +65,7 @@ export function neutralLines(n: NeutralCheck): string[] {
   ];
   if (n.ratingA !== null) lines.push(`  rating ${fixed(n.ratingA, 0)} A: ${fixed(n.loadingPercent ?? 0, 0)} % loaded${n.overloaded ? ' — OVERLOADED' : ''}`);
   else lines.push('  no neutral rating in the board file (feeder.neutral.ratingA): not checked');
-  lines.push(prose(`practice: ${n.practice}`));
+  if (n.practice) lines.push(prose(`practice: ${n.practice}`));
   return lines;
 }
 

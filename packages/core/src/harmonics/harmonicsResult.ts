@@ -48,7 +48,8 @@ export interface NeutralCheck {
   readonly loadingPercent: number | null;
   readonly overloaded: boolean;
   /** The usual sizing practice for neutrals feeding non-linear loads, in words. */
-  readonly practice: string;
+  /** The usual sizing practice for this neutral; null on a three-phase board whose neutral carries little triplen current. */
+  readonly practice: string | null;
 }
 
 export interface TddLine {

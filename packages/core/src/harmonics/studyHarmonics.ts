@@ -60,16 +60,23 @@ export function neutralCheck(board: Board, orders: readonly OrderSolution[], lin
   const triplen = current.orders.filter((o) => o.order % 3 === 0).reduce((s, o) => s + o.magnitude ** 2, 0);
   const largest = Math.max(...lines.map((l) => l.current.rms));
   const rating = board.neutralRatingA;
+  const triplenSharePercent = current.rms > 0 ? (100 * triplen) / current.rms ** 2 : null;
+  // The three-phase sizing note speaks of triplen currents: given where they are a real share of the neutral's.
+  const threePhase = board.phases.length === 3;
+  const practice = threePhase && (triplenSharePercent ?? 0) < NEUTRAL_NOTE_TRIPLEN_PERCENT ? null : neutralPractice(board.system);
   return {
     current,
-    triplenSharePercent: current.rms > 0 ? (100 * triplen) / current.rms ** 2 : null,
+    triplenSharePercent,
     ratioToPhase: largest > 0 ? current.rms / largest : null,
     ratingA: rating,
     loadingPercent: rating ? (100 * current.rms) / rating : null,
     overloaded: rating !== null && current.rms > rating,
-    practice: neutralPractice(board.system),
+    practice,
   };
 }
+
+/** Share of the neutral's rms² in triplen orders, %, below which the triplen sizing note is left out (common practice, no source). */
+const NEUTRAL_NOTE_TRIPLEN_PERCENT = 10;
 
 export function tddCheck(board: Board, model: HarmonicModel, lines: readonly HarmonicLineReading[]): TddCheck | null {
   if (!model.pcc) return null;

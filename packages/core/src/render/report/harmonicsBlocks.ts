@@ -83,7 +83,7 @@ export function neutralBlocks(n: NeutralCheck): ReportBlock[] {
         ['Neutral loading', n.loadingPercent === null ? 'no rating entered' : `${fixed(n.loadingPercent, 0)} % of ${fixed(n.ratingA!, 0)} A${n.overloaded ? ' — OVERLOADED' : ''}`],
       ],
     },
-    { kind: 'paragraph', text: n.practice },
+    ...(n.practice ? [{ kind: 'paragraph' as const, text: n.practice }] : []),
   ];
 }
 
