@@ -75,17 +75,23 @@ const ordersOf = (models: readonly HarmonicModel[]) =>
 /** The bank parts (load numbers) of each board. */
 const partsOf = (models: readonly HarmonicModel[]) => models.map((m) => (m.bank ? [...(m.bank.fixedLoad === null ? [] : [m.bank.fixedLoad]), ...m.bank.stepLoads] : []));
 
+/** The example installation and the states capacitorDuty puts it in: the hall's bank switched and scaled, the cold store's bank off. */
+function dutyStates() {
+  const { installation, models, bankBoards } = resolveInstallationHarmonics(parseInstallation(readBoardText(INSTALLATION)));
+  const [hall, cold] = bankBoards as [number, number];
+  const bank = models[hall]!.bank!;
+  // The hall's bank in a state and at a capacitance factor, as capacitorDuty sets it; its model with it.
+  const hallState = (steps: boolean[], factor: number) => {
+    const at = withCapacitanceFactor(withSteps(boardOfInstallation(installation, hall), bank, steps), models[hall]!, factor);
+    return { installation: installationOf(at.board).installation, models: models.map((m, b) => (b === hall ? at.model : m)) };
+  };
+  const coldOff = (inst: Installation) => withPartsOff(inst, partsOf(models).map((p, b) => (b === cold ? p : [])));
+  return { installation, models, hall, hallState, coldOff };
+}
+
 describe('harmonic solves through a CompiledNetworkCache equal fresh compiles', () => {
   it('an installation in the duty check’s states, at every order', () => {
-    const { installation, models, bankBoards } = resolveInstallationHarmonics(parseInstallation(readBoardText(INSTALLATION)));
-    const [hall, cold] = bankBoards as [number, number];
-    const bank = models[hall]!.bank!;
-    // The hall's bank in a state and at a capacitance factor, as capacitorDuty sets it; its model with it.
-    const hallState = (steps: boolean[], factor: number) => {
-      const at = withCapacitanceFactor(withSteps(boardOfInstallation(installation, hall), bank, steps), models[hall]!, factor);
-      return { installation: installationOf(at.board).installation, models: models.map((m, b) => (b === hall ? at.model : m)) };
-    };
-    const coldOff = (inst: Installation) => withPartsOff(inst, partsOf(models).map((p, b) => (b === cold ? p : [])));
+    const { installation, models, hall, hallState, coldOff } = dutyStates();
     const states: [string, Installation, readonly HarmonicModel[]][] = [
       ['as given', installation, models],
       ['every load off', withInstallationLoadsOff(installation), models],
@@ -127,14 +133,7 @@ describe('harmonic solves through a CompiledNetworkCache equal fresh compiles', 
   });
 
   it('the duty’s solves read the same node voltages as full solves, in every state and order', () => {
-    const { installation, models, bankBoards } = resolveInstallationHarmonics(parseInstallation(readBoardText(INSTALLATION)));
-    const [hall, cold] = bankBoards as [number, number];
-    const bank = models[hall]!.bank!;
-    const hallState = (steps: boolean[], factor: number) => {
-      const at = withCapacitanceFactor(withSteps(boardOfInstallation(installation, hall), bank, steps), models[hall]!, factor);
-      return { installation: installationOf(at.board).installation, models: models.map((m, b) => (b === hall ? at.model : m)) };
-    };
-    const coldOff = (inst: Installation) => withPartsOff(inst, partsOf(models).map((p, b) => (b === cold ? p : [])));
+    const { installation, models, hall, hallState, coldOff } = dutyStates();
     const off = hallState([false, false, false], 1);
     const states: [string, Installation, readonly HarmonicModel[]][] = [
       ['as given', installation, models],
