@@ -148,3 +148,20 @@ describe('trivar correct without an arrangement on a board with harmonic data (b
     expect(r.stdout).toMatch(/delta bank\s+plain .* FAILS/);
   });
 });
+
+describe('trivar correct comparing arrangements on a split-phase board with harmonic data (built binary)', () => {
+  it('says why each failing variant fails, the ones the table cannot show included (no unit fits)', () => {
+    // A cabin whose well pump pulls the lines to PF 0.93 lagging: only a line-to-line bank fits the
+    // North-American catalogue, and no unit suits the raised capacitor voltage of a detuned one.
+    const board = readFileSync(`${ROOT}examples/pine-hollow-cabin.yaml`, 'utf8')
+      .replace('kW: 1.1, pf: 0.78', 'kW: 3.5, pf: 0.6')
+      .replace('kW: 1.5, pf: 0.95 }', 'kW: 1.5, pf: 0.95, spectrum: switch-mode }')
+      .replace('studies:', 'harmonics:\n  background: [{ order: 5, percent: 2 }]\nstudies:');
+    const r = runTrivar(['correct', '-'], board);
+    expect(r.stderr).toBe('');
+    expect(r.code).toBe(0);
+    expect(r.stdout).toMatch(/L-L bank\s+plain \*.* passes/);
+    expect(r.stdout).toMatch(/detuned 7 % .* FAILS/);
+    expect(r.stdout).toContain('L-L bank, detuned 5.67 %, detuned 7 %, detuned 14 %: no unit of the catalogue suits its capacitor');
+  });
+});

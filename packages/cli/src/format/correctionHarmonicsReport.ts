@@ -92,8 +92,16 @@ export function renderComparisonHarmonics(h: HarmonicComparison['harmonics'], na
       v.passes ? 'passes' : 'FAILS',
     ]),
   );
-  // Why a variant fails, with its figures, where the other banks decide it (a board file's table says it all).
-  const reasons = switched ? h.arrangements.flatMap((a) => a.variants.filter((v) => !v.passes).map((v) => wrapText(`${names[a.arrangement] ?? a.arrangement}, ${v.name}: ${v.reasons.join('; ')}`, '  ', '    '))) : [];
+  // Why a variant fails, in words: the table shows resonance and duty, not a bank that could not be built or
+  // misses the target. Variants of one arrangement failing for the same reasons share a line.
+  const reasons = h.arrangements.flatMap((a) => {
+    const byReasons = new Map<string, string[]>();
+    for (const v of a.variants.filter((x) => !x.passes)) {
+      const words = v.reasons.join('; ');
+      byReasons.set(words, [...(byReasons.get(words) ?? []), v.name]);
+    }
+    return [...byReasons].map(([words, variants]) => wrapText(`${names[a.arrangement] ?? a.arrangement}, ${variants.join(', ')}: ${words}`, '  ', '    '));
+  });
   return [
     section('Harmonic check of every arrangement: plain and detuned banks'),
     wrapText(
