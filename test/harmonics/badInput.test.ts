@@ -4,7 +4,7 @@
  * wrong answer.
  */
 import { describe, expect, it } from 'vitest';
-import { InputError, studyHarmonics } from '@trivar/core';
+import { addInstalledBank, InputError, normaliseBoard, parseBoard, studyHarmonics } from '@trivar/core';
 
 const good = () => ({
   supply: { system: 'three-phase-4wire', voltage: { lineToLine: 400 }, frequencyHz: 50, transformer: { kVA: 250, impedancePercent: 4, xOverR: 4 } },
@@ -49,15 +49,26 @@ const cases: [string, unknown, string, string, RegExp][] = [
   ['scan beyond order 50', edit((b) => (b.harmonics = { scan: { maxOrder: 80 } })), 'out_of_range', 'harmonics.scan.maxOrder', /<= 50/],
   ['bank with no steps', edit((b) => (b.harmonics = { bank: { connection: 'delta', ratedV: 440, stepsKvar: [] } })), 'out_of_range', 'harmonics.bank.stepsKvar', /at least 1/],
   [
-    'bank on a single-phase board',
+    'delta bank on a single-phase board (one line: no line pair)',
     edit((b) => {
       b.supply = { system: 'single-phase', voltage: { lineToNeutral: 230 }, frequencyHz: 50 };
       b.loads = [{ name: 'desks', connection: 'A-N', kW: 2, pf: 0.97, spectrum: 'switch-mode' }];
-      b.harmonics = { bank: { connection: 'star', ratedV: 250, stepsKvar: [5] } };
+      b.harmonics = { bank: { connection: 'delta', ratedV: 250, stepsKvar: [5] } };
     }),
     'not_applicable',
-    'harmonics.bank',
-    /three-phase board/,
+    'harmonics.bank.connection',
+    /connection: star on a single-phase board/,
+  ],
+  [
+    'star bank on a split-phase board (two capacitors switched together: no load connection names them)',
+    edit((b) => {
+      b.supply = { system: 'split-phase', voltage: { lineToNeutral: 120 }, frequencyHz: 60 };
+      b.loads = [{ name: 'desks', connection: 'A-N', kW: 2, pf: 0.97, spectrum: 'switch-mode' }];
+      b.harmonics = { bank: { connection: 'star', ratedV: 240, stepsKvar: [2] } };
+    }),
+    'not_applicable',
+    'harmonics.bank.connection',
+    /connection: delta on a split-phase board/,
   ],
 ];
 
@@ -73,5 +84,25 @@ describe('bad harmonic input', () => {
     const issues = (caught as InputError).issues;
     expect(issues.map((i) => [i.code, i.path])).toContainEqual([code, path]);
     expect(issues.find((i) => i.path === path)!.message).toMatch(wording);
+  });
+});
+
+describe('addInstalledBank called directly', () => {
+  it('refuses a bank the board cannot take, naming bank.connection, and places one it can', () => {
+    const cabin = normaliseBoard(parseBoard({ supply: { system: 'split-phase', voltage: { lineToNeutral: 120 }, frequencyHz: 60 }, loads: [{ name: 'heater', connection: 'A-B', kW: 3 }] }));
+    let caught: unknown;
+    try {
+      addInstalledBank(cabin, { connection: 'star', ratedV: 240, stepsKvar: [2] });
+    } catch (e) {
+      caught = e;
+    }
+    expect(caught).toBeInstanceOf(InputError);
+    expect((caught as InputError).issues.map((i) => i.path)).toEqual(['bank.connection']);
+    // Across the two lines: one capacitor per step carrying the step's whole kvar at its rated voltage.
+    const { board } = addInstalledBank(cabin, { connection: 'delta', ratedV: 240, stepsKvar: [2] });
+    const step = board.loads.at(-1)!;
+    expect(step.connection).toBe('A-B');
+    expect(step.branches.map((b) => `${b.from}-${b.to}`)).toEqual(['A-B']);
+    expect(-step.branches[0]!.sNominal.im).toBeCloseTo(2000, 9);
   });
 });

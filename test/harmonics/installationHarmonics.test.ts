@@ -363,12 +363,17 @@ describe('bad input to the installation harmonic study', () => {
     expect(issues.map((i) => i.path)).toContain('boards[1].loads[0].spectrum[0].order');
   });
 
-  it('a bank on a split-phase installation', () => {
-    const input = base({ banks: [{ ...bank, board: 'Shed' }] }) as Record<string, unknown> & { boards: { loads: unknown[] }[] };
+  it('a star bank on a split-phase installation (a delta bank, across the two lines, is taken)', () => {
+    const input = base({ banks: [{ ...bank, connection: 'star', board: 'Shed' }] }) as Record<string, unknown> & { boards: { loads: unknown[] }[] };
     input.supply = { system: 'split-phase', voltage: { lineToLine: 240 }, frequencyHz: 60, transformer: { kVA: 50, impedancePercent: 2, xOverR: 2 } };
     input.boards[0]!.loads = [{ name: 'pcs', connection: 'A-N', kW: 2, spectrum: 'switch-mode' }];
     input.boards[1]!.loads = [{ name: 'heater', connection: 'A-B', kW: 3 }];
     const issues = issuesOf(input);
-    expect(issues).toContainEqual(expect.objectContaining({ code: 'not_applicable', path: 'harmonics.banks[0]' }));
+    expect(issues).toContainEqual(expect.objectContaining({ code: 'not_applicable', path: 'harmonics.banks[0].connection' }));
+    (input.harmonics as { banks: { connection: string; ratedV: number }[] }).banks[0] = { ...bank, board: 'Shed', ratedV: 277 } as never;
+    const report = studyInstallationHarmonics(input);
+    // The capacitor across the two lines is in the state solved and scanned at its board.
+    expect(report.state).toBe('every bank step on (Shed: step 1)');
+    expect(report.scans.map((s) => s.board)).toEqual(['Shed']);
   });
 });

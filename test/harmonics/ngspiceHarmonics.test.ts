@@ -57,7 +57,38 @@ const THREE_WIRE: BoardSpec = {
   },
 };
 
+/** A 120/240 V split-phase farm shop with a detuned bank across the two lines and non-linear loads on each line. */
+const SPLIT_PHASE: BoardSpec = {
+  name: 'split-phase farm shop',
+  supply: { system: 'split-phase', voltage: { lineToNeutral: 120 }, frequencyHz: 60, transformer: { kVA: 50, impedancePercent: 2.4, xOverR: 1.8 } },
+  feeder: { line: { r: 0.03, x: 0.012 }, neutral: { r: 0.05, x: 0.012 } },
+  loads: [
+    { name: 'grain dryer fan', connection: 'A-B', kW: 7.5, pf: 0.8, linearForm: 'series' },
+    { name: 'shop lighting', connection: 'A-N', kW: 1.2, pf: 0.95, spectrum: 'led-driver' },
+    { name: 'office', connection: 'B-N', kW: 0.9, pf: 0.98, spectrum: 'switch-mode' },
+    { name: 'heat lamps', connection: 'B-N', ohms: { r: 9, x: 0 } },
+  ],
+  harmonics: {
+    background: [{ order: 5, percent: 1.5, angleDeg: 10 }],
+    bank: { connection: 'delta', ratedV: 277, stepsKvar: [2, 3], detuningPercent: 7 },
+  },
+};
+
+/** A single-phase cabin with one capacitor from the line to the neutral. */
+const SINGLE_PHASE: BoardSpec = {
+  name: 'single-phase pump house',
+  supply: { system: 'single-phase', voltage: { lineToNeutral: 230 }, frequencyHz: 50, transformer: { kVA: 25, impedancePercent: 3, xOverR: 1.5 } },
+  feeder: { line: { r: 0.08, x: 0.02 }, neutral: { r: 0.08, x: 0.02 } },
+  loads: [
+    { name: 'borehole pump', connection: 'A-N', kW: 3, pf: 0.75, linearForm: 'series' },
+    { name: 'controls', connection: 'A-N', kW: 0.4, pf: 0.9, spectrum: 'switch-mode' },
+  ],
+  harmonics: { bank: { connection: 'star', ratedV: 250, stepsKvar: [1, 1] } },
+};
+
 const BOARDS: { name: string; spec: BoardSpec }[] = [
+  { name: 'split-phase farm shop (detuned line-to-line bank)', spec: SPLIT_PHASE },
+  { name: 'single-phase pump house (line-to-neutral capacitors)', spec: SINGLE_PHASE },
   { name: 'Mill Street offices (plain delta bank, 4-wire)', spec: example('mill-street-offices.yaml') },
   { name: 'three-wire workshop (detuned floating star bank)', spec: THREE_WIRE },
 ];

@@ -11,14 +11,14 @@
 import type { BankInService, Installation } from '../board/boardModel.js';
 import { InputError, inputIssue, type InputIssue } from '../errors.js';
 import { boardOfInstallation, withBoardLoads } from '../network/installationModel.js';
-import { addInstalledBank } from './harmonicModel.js';
+import { addInstalledBank, installedBankLayout } from './harmonicModel.js';
 import type { InstallationBankSpec } from './harmonicsSpec.js';
 
 const boardNames = (installation: Installation) => [installation.main.name, ...installation.subBoards.map((sb) => sb.name)];
 
 /**
  * Board number of each bank: each names a board of the installation, at most one bank per board, on a
- * three-phase supply, its `stepsInService` naming steps it has, each once.
+ * connection the supply's system takes (installedBankLayout), its `stepsInService` naming steps it has, each once.
  * @throws {InputError} naming each entry's field (`harmonics.banks[1].board`, `harmonics.banks[0].stepsInService[2]`)
  */
 export function bankBoardsOf(banks: readonly InstallationBankSpec[] | undefined, installation: Installation): number[] {
@@ -33,7 +33,8 @@ export function bankBoardsOf(banks: readonly InstallationBankSpec[] | undefined,
     if (b < 0) issues.push(inputIssue('unknown_board', `${path}.board`, `the name of a board in this installation: ${names.map((n) => JSON.stringify(n)).join(', ')}`, bank.board));
     else if (seen.has(b)) issues.push(inputIssue('duplicate', `${path}.board`, `one bank per board (harmonics.banks[${seen.get(b)}] is already on "${bank.board}")`, bank.board));
     else seen.set(b, i);
-    if (installation.main.phases.length !== 3) issues.push(inputIssue('not_applicable', path, 'a bank on a three-phase installation (its steps are three-phase)', installation.main.system));
+    const layout = installedBankLayout(installation.main, bank.connection);
+    if (!layout.ok) issues.push(inputIssue('not_applicable', `${path}.connection`, layout.expected, bank.connection));
     (bank.stepsInService ?? []).forEach((step, k) => {
       const at = `${path}.stepsInService[${k}]`;
       if (step > bank.stepsKvar.length) issues.push(inputIssue('too_big', at, `a step of this bank: 1 to ${bank.stepsKvar.length} (stepsKvar has ${bank.stepsKvar.length})`, step));

@@ -7,6 +7,7 @@
  */
 import type { Board, BoardLoad, Terminal } from '../board/boardModel.js';
 import { degToRad } from '../complex.js';
+import { InputError, inputIssue } from '../errors.js';
 import { HARMONICS_DEFAULTS } from './harmonicsDefaults.js';
 import { CORRECTION_DEFAULTS } from '../correction/correctionDefaults.js';
 import type { CapacitanceTolerance } from './harmonicsResult.js';
@@ -87,30 +88,50 @@ function behaviourOf(spec: HarmonicLoadSpec | undefined, load: BoardLoad, defaul
 }
 
 /**
+ * Where an installed bank's capacitors of one part sit on a board of this system, with the connection its
+ * parts are reported under; or, where the bank cannot be built on it, what the file should give instead.
+ * Three-phase: three elements, line to line (delta) or to the neutral bar (star; on a three-wire supply a
+ * floating star point). Split-phase: the one line-to-line capacitor (delta); a bank from each line to the
+ * neutral would be two single-phase capacitors switched together, which no connection of a load names,
+ * so it is refused with its line-to-line form. Single-phase: one capacitor from the line to the neutral (star).
+ */
+export function installedBankLayout(board: Pick<Board, 'system' | 'phases' | 'hasNeutral'>, connection: InstalledBankSpec['connection']):
+  | { readonly ok: true; readonly pairs: (floatingStar: string) => [Terminal, Terminal][]; readonly connection: BoardLoad['connection'] }
+  | { readonly ok: false; readonly expected: string } {
+  const star = connection === 'star';
+  if (board.phases.length === 3)
+    return star
+      ? { ok: true, connection: 'ABC-star', pairs: (floating) => (['A', 'B', 'C'] as const).map((ph): [Terminal, Terminal] => [ph, board.hasNeutral ? 'N' : (floating as Terminal)]) }
+      : { ok: true, connection: 'ABC-delta', pairs: () => [['A', 'B'], ['B', 'C'], ['C', 'A']] };
+  if (board.system === 'split-phase')
+    return star
+      ? { ok: false, expected: 'connection: delta on a split-phase board (capacitors across the two lines; line-to-neutral capacitors switched together are not modelled: give them as loads in ohms)' }
+      : { ok: true, connection: 'A-B', pairs: () => [['A', 'B']] };
+  return star ? { ok: true, connection: 'A-N', pairs: () => [['A', 'N']] } : { ok: false, expected: 'connection: star on a single-phase board (one capacitor from the line to the neutral; there is no second line for a delta)' };
+}
+
+/**
  * Adds an installed bank to a board as one constant-impedance load per part
- * (fixed part, then each step), all steps on. A detuned step is entered at
- * its effective fundamental susceptance B_C/(1 − p).
+ * (fixed part, then each step), all steps on, its capacitors placed as
+ * `installedBankLayout` says (a part's kvar shared equally by its elements). A
+ * detuned step is entered at its effective fundamental susceptance B_C/(1 − p).
+ * @throws {InputError} at `bank.connection` for a bank the board's system cannot take (the studies check the file's field first)
  */
 export function addInstalledBank(board: Board, bank: InstalledBankSpec): { board: Board; model: BankModel } {
+  const layout = installedBankLayout(board, bank.connection);
+  if (!layout.ok) throw new InputError([inputIssue('not_applicable', 'bank.connection', layout.expected, bank.connection)], `addInstalledBank: the bank does not fit a ${board.system} board`);
   const p = (bank.detuningPercent ?? 0) / 100;
   const star = bank.connection === 'star';
   const vNominal = star ? board.nominalLineToNeutralV : (board.nominalLineToLineV ?? board.nominalLineToNeutralV);
   const loads: BoardLoad[] = [];
   const part = (name: string, kvar: number): number => {
     const index = board.loads.length + loads.length;
-    const to: Terminal = star ? (board.hasNeutral ? 'N' : `star:${index}`) : 'A';
-    const pairs: [Terminal, Terminal][] = star
-      ? (['A', 'B', 'C'] as const).map((ph) => [ph, to])
-      : [
-          ['A', 'B'],
-          ['B', 'C'],
-          ['C', 'A'],
-        ];
-    const bCapacitor = (kvar * 1000) / 3 / bank.ratedV ** 2;
+    const pairs = layout.pairs(`star:${index}`);
+    const bCapacitor = (kvar * 1000) / pairs.length / bank.ratedV ** 2;
     const bEffective = bCapacitor / (1 - p);
     loads.push({
       name,
-      connection: star ? 'ABC-star' : 'ABC-delta',
+      connection: layout.connection,
       model: 'constant-impedance',
       origin: 'added',
       branches: pairs.map(([from, t]) => ({ from, to: t, sNominal: { re: 0, im: -bEffective * vNominal * vNominal }, vNominal, zip: { z: 1, i: 0, p: 0 } })),

@@ -86,7 +86,7 @@ export const backgroundSchema = z
 
 export const installedBankSchema = z
   .strictObject({
-    connection: z.enum(['delta', 'star']).describe('delta (units line to line) or star to the neutral bar'),
+    connection: z.enum(['delta', 'star']).describe('delta (units line to line; on a split-phase board the one capacitor across the two lines) or star to the neutral bar (on a single-phase board the one capacitor from the line to the neutral)'),
     ratedV: z.number().positive().describe('rated voltage of each capacitor element, V'),
     stepsKvar: z.array(z.number().positive()).min(1).max(12).describe('three-phase output of each switched step at rated voltage, kvar'),
     fixedKvar: z.number().nonnegative().optional().describe('three-phase output of the permanently connected part at rated voltage, kvar; default 0'),

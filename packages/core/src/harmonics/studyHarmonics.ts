@@ -12,7 +12,7 @@ import { abs, add } from '../complex.js';
 import { InputError, inputIssue } from '../errors.js';
 import { compileBoard, solveCompiledBoard, solveNetwork, type NetworkSolution, type SolveOptions } from '../network/solveNetwork.js';
 import { CompiledNetworkCache } from '../network/compiledNetworkCache.js';
-import { addInstalledBank, ordersPresent, resolveHarmonicModel, stateKey, type BankModel, type HarmonicModel } from './harmonicModel.js';
+import { addInstalledBank, installedBankLayout, ordersPresent, resolveHarmonicModel, stateKey, type BankModel, type HarmonicModel } from './harmonicModel.js';
 import { solveAtOrder } from './networkAtOrder.js';
 import { readLines, readLineToLine, readNeutral, type OrderSolution } from './readHarmonics.js';
 import { combinationLabel, scanResonance, stepCombinations } from './scanResonance.js';
@@ -344,10 +344,12 @@ export function spectraOf(board: Board, model: HarmonicModel): HarmonicsReport['
   });
 }
 
-/** A bank's steps are three-phase, so it needs a three-phase board. */
+/** A bank whose connection the board's system can take (installedBankLayout). */
 function checkBank(spec: HarmonicsBoardSpec, board: Board): void {
-  if (spec.harmonics?.bank && board.phases.length !== 3)
-    throw new InputError([inputIssue('not_applicable', 'harmonics.bank', 'a bank on a three-phase board (its steps are three-phase)', board.system)]);
+  const bank = spec.harmonics?.bank;
+  if (!bank) return;
+  const layout = installedBankLayout(board, bank.connection);
+  if (!layout.ok) throw new InputError([inputIssue('not_applicable', 'harmonics.bank.connection', layout.expected, bank.connection)]);
 }
 
 /**
