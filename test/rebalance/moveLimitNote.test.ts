@@ -44,4 +44,17 @@ describe('rebalance: a single-phase board', () => {
     expect(r.notes).toEqual(['A single-phase supply has one line: every circuit is on it and there is no other to move one to, so there is nothing to rebalance.']);
     expect(rebalanceBoard(board, {}, { moveTable: false }).oneLine).toBe(false);
   });
+
+  it('scores the neutral in the fast model as the re-solve does: the line current twice, over and back', () => {
+    // 3 kW at PF 0.9 on 230 V: 3000 / (230 × 0.9) = 14.49 A in the line and the same back in the neutral.
+    const single = { supply: { system: 'single-phase', voltage: { lineToNeutral: 230 }, frequencyHz: 50 }, loads: [{ name: 'W1', connection: 'A-N', kW: 3, pf: 0.9 }] } as BoardSpec;
+    const r = rebalanceBoard(normaliseBoard(parseBoard(single)), {});
+    const figures = r.conditions[0]!.model.before;
+    expect(figures.lineA[0]).toBeCloseTo(3000 / (230 * 0.9), 9);
+    expect(figures.largestLineA).toBeCloseTo(figures.lineA[0]!, 12);
+    expect(figures.neutralA).toBeCloseTo(figures.lineA[0]!, 12);
+    expect(r.score.before).toBeCloseTo(2 * 3000 / (230 * 0.9), 9);
+    // Nominal voltage in the fast model, the solved voltage in the re-solve (no supply impedance here: equal).
+    expect(r.solvedScore!.before).toBeCloseTo(r.score.before, 6);
+  });
 });

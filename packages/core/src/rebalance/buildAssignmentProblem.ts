@@ -181,7 +181,8 @@ export function buildAssignmentProblem(tree: RebalanceTree, study: ResolvedRebal
     for (const p of study.measuredBoards) {
       const perBoard = under(p);
       const lineIdx = board.phases.map((_, k) => rows.push({ weights: unit[k]!, perBoard, condition: c, constant: ZERO }) - 1);
-      const neutral = board.hasNeutral && lines > 1 ? rows.push({ weights: ones, perBoard, condition: c, constant: ZERO }) - 1 : -1;
+      // On a single-phase board the neutral carries the line current back: counted as the network re-solve counts it.
+      const neutral = board.hasNeutral ? rows.push({ weights: ones, perBoard, condition: c, constant: ZERO }) - 1 : -1;
       const negative = threePhase ? rows.push({ weights: negativeRow, perBoard, condition: c, constant: ZERO }) - 1 : -1;
       const total = sumUnder(p, drawn);
       let positiveA = 0;
@@ -209,7 +210,8 @@ export function buildAssignmentProblem(tree: RebalanceTree, study: ResolvedRebal
         negative,
         voltageNegative,
         balancedA,
-        neutralShare: threePhase ? 1 / 3 : 0.5,
+        // The neutral current is the sum of the lines: the mean-square bound takes 1/3 (1/2) of it on three (two) lines; one line is its own neutral.
+        neutralShare: threePhase ? 1 / 3 : lines === 2 ? 0.5 : 0,
         positiveA,
         positiveV,
       });
