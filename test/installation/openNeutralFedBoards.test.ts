@@ -42,4 +42,22 @@ describe('open neutral on an installation', () => {
     // The sub-board's own study lists its circuits without a board name.
     expect(r.boards[1]!.result.openNeutral!.loads.map((l) => l.name)).toEqual(['Lamp A', 'Heater B']);
   });
+
+  it('"every load as a constant impedance" converts the loads of the boards fed too (they kept their constant power)', () => {
+    // Constant-power heaters on two sub-boards, the service neutral broken: as impedances, 3 kW and 1 kW at
+    // 120 V are 4.8 Ω and 14.4 Ω in series across 240 V, so 60 V and 180 V (hand figures).
+    const tiny = { line: { r: 0.001, x: 0 }, neutral: { r: 0.001, x: 0 } };
+    const board = (name: string, connection: 'A-N' | 'B-N', kW: number) => ({ name, fedFrom: 'Main', feeder: tiny, loads: [{ name: `Heater ${name}`, connection, kW }] });
+    const r = solveInstallation(
+      { supply: { voltage: '120/240', frequencyHz: 60, impedance: { r: 0.001, x: 0.001 } }, boards: [{ name: 'Main', feeder: tiny, loads: [] }, board('Sub A', 'A-N', 3), board('Sub B', 'B-N', 1)] },
+      { openNeutral: true },
+    );
+    const study = r.boards[0]!.result.openNeutral!;
+    const asZ = study.impedanceModel!.loads.map((l) => l.voltage);
+    expect(asZ[0]).toBeCloseTo(60, 0);
+    expect(asZ[1]).toBeCloseTo(180, 0);
+    // The reached state keeps the loads' own model, so it differs, and the study says the answer depends on it.
+    expect(study.dependsOnLoadModel).toBe(true);
+    expect(study.loads[1]!.voltage).toBeGreaterThan(200);
+  });
 });

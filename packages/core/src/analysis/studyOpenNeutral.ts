@@ -8,7 +8,7 @@
  */
 import { abs, sub, toPhasor, ZERO, type ComplexValue } from '../complex.js';
 import { NumericalError } from '../errors.js';
-import type { Board, LoadBranch, PhaseId } from '../board/boardModel.js';
+import type { Board, BoardLoad, LoadBranch, PhaseId } from '../board/boardModel.js';
 import { installationOf } from '../network/installationModel.js';
 import { buildInstallationCircuit } from '../network/installationCircuit.js';
 import { REFERENCE } from '../network/circuit.js';
@@ -119,10 +119,26 @@ function distancePercent(a: NetworkSolution, b: NetworkSolution): number {
   return (100 * largest) / a.board.nominalLineToNeutralV;
 }
 
-const allImpedance = (board: Board): Board => ({
-  ...board,
-  loads: board.loads.map((l) => ({ ...l, branches: l.branches.map((b) => ({ ...b, zip: { z: 1, i: 0, p: 0 } })) })),
-});
+const asImpedance = (loads: readonly BoardLoad[]): BoardLoad[] => loads.map((l) => ({ ...l, branches: l.branches.map((b) => ({ ...b, zip: { z: 1, i: 0, p: 0 } })) }));
+
+/**
+ * Every load as a constant impedance: the board's own and, where it has a place in an installation, every
+ * other board's too (the boards it feeds share its broken neutral, and a solve of the board is a solve of
+ * the whole installation).
+ */
+const allImpedance = (board: Board): Board => {
+  const own = { ...board, loads: asImpedance(board.loads) };
+  const place = board.installation;
+  if (!place) return own;
+  const { installation } = place;
+  return {
+    ...own,
+    installation: {
+      ...place,
+      installation: { ...installation, main: { ...installation.main, loads: asImpedance(installation.main.loads) }, subBoards: installation.subBoards.map((sb) => ({ ...sb, loads: asImpedance(sb.loads) })) },
+    },
+  };
+};
 
 /** Solves, or null when this board has no solution there (the study reports what it found). */
 function trySolve<T>(solve: () => T): T | null {
@@ -198,7 +214,7 @@ export function studyOpenNeutral(board: Board, options?: SolveOptions): OpenNeut
   // current flows through them whatever their model (a constant-power load's "collapse" is that).
   const phasesFed = new Set(reached.loads.map((l) => l.phase));
   const deadLine = phasesFed.size === 1 ? reached.loads[0]!.phase : null;
-  const powerDependent = deadLine === null && board.loads.some((l) => l.branches.some((b) => b.zip.z < 1 && abs(b.sNominal) > 0));
+  const powerDependent = deadLine === null && [...board.loads, ...fedLoads].some((l) => l.branches.some((b) => b.zip.z < 1 && abs(b.sNominal) > 0));
   let withoutLowVoltageRule: OpenNeutralWithoutRule | null = null;
   let ruleDecides = false;
   if (powerDependent && reached.loads.some((l) => l.belowLowVoltageRule)) {
