@@ -17,7 +17,7 @@ describe('trivar solve on an installation (built binary)', () => {
       expect(row, f.board).toContain(f.lines[0]!.current.magnitude.toFixed(1));
       expect(row).toContain(f.voltageDropPercent.toFixed(2));
     }
-    expect(r.stdout).toContain(`lowest phase voltage ${result.totals.lowestVoltagePercent.toFixed(1)} % of nominal, at ${result.totals.lowestVoltageBoard}`);
+    expect(r.stdout).toContain(`lowest voltage ${result.totals.lowestVoltagePercent.toFixed(1)} % of nominal, at ${result.totals.lowestVoltageBoard} (${result.totals.lowestVoltageAt})`);
     expect(r.stdout).toContain('licensed professional');
     // The summary does not repeat every board's full figures.
     expect(r.stdout).not.toContain('Symmetrical components');

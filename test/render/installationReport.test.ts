@@ -90,7 +90,7 @@ describe('installation report', () => {
     expect(t.rows[2]![6]).toBe('85');
     expect(t.rows[3]![6]).toBe('—');
     const totals = facts(section(doc, 'totals'));
-    expect(totals.get('Lowest phase voltage')).toBe(`${result.totals.lowestVoltagePercent.toFixed(1)} % of nominal, at Floor 4`);
+    expect(totals.get('Lowest voltage')).toBe(`${result.totals.lowestVoltagePercent.toFixed(1)} % of nominal, at Floor 4 (${result.totals.lowestVoltageAt})`);
     expect(totals.get('Losses (source windings and every feeder)')).toBe(`${result.totals.lossesKW.toFixed(3)} kW`);
     // Source = loads + losses (power balance), as printed.
     const source = /^([\d.]+) kW/.exec(totals.get('From the source')!)![1]!;

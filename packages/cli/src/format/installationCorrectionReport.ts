@@ -95,7 +95,7 @@ function supplyLines(e: InstallationEffect): string {
     row('from the source', `${change(s.kW, 2)} kW, ${change(s.kvar, 2)} kvar, ${change(s.kVA, 2)} kVA`),
     row('PF at the source', change(s.pf, 3)),
     row('losses (source + feeders)', `${change(s.lossesKW, 3)} kW`),
-    row('lowest phase voltage', `${change(s.lowestVoltagePercent, 1)} % of nominal`),
+    row('lowest voltage', `${change(s.lowestVoltagePercent, 1)} % of nominal`),
     ...(s.transformerLoadingPercent ? [row('transformer', `${change(s.transformerLoadingPercent, 0)} % of rated current`)] : []),
   ].join('\n');
 }
@@ -109,7 +109,7 @@ export function renderInstallationEffect(e: InstallationEffect): string {
   return (
     section('Every board, before → after (the whole installation re-solved with the equipment)') +
     boardTable(e) +
-    `\n${note("* the board the equipment is on. At each board's incomer (everything its feeder carries): lowest phase voltage, largest line current, neutral current, vector PF |ΣP|/|ΣS|, |I2|/|I1|, reactive power in (+ lagging). Per line: --json.")}` +
+    `\n${note("* the board the equipment is on. At each board's incomer (everything its feeder carries): lowest voltage the limits judge, largest line current, neutral current, vector PF |ΣP|/|ΣS|, |I2|/|I1|, reactive power in (+ lagging). Per line: --json.")}` +
     band +
     '\n' +
     section('Feeders, before → after') +

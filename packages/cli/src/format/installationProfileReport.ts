@@ -64,7 +64,7 @@ function boardSection(b: InstallationProfileBoard, label: PhaseLabeller): string
   return [
     section(`${b.board} — currents in the ${where}`),
     currentTable(b.before, label),
-    section(`${b.board} — phase voltage at the board (% of nominal)`),
+    section(`${b.board} — voltages at the board (% of nominal)`),
     voltageTable(b.before, label),
     ...thresholdLines(b.before, b),
     `  energy through the board: ${Math.round(b.before.energy.kWhImport).toLocaleString('en-US')} kWh imported, billing power factor ${billingPowerFactorText(b.before.energy.billingPf)}`,

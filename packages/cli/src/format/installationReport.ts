@@ -38,11 +38,11 @@ function limitsLine(r: InstallationResult): string {
 function boardTable(r: InstallationResult): string {
   const rows = r.boards.map((b) => {
     const res = b.result;
-    const percents = res.phases.map((p) => p.voltagePercent);
+    // The voltages the verdict beside them judges (line-to-neutral, line-to-line, at the loads).
     return [
       treeName(b.name, b.depth),
-      fixed(Math.min(...percents), 1),
-      fixed(Math.max(...percents), 1),
+      fixed(res.voltageCheck.lowest.percent, 1),
+      fixed(res.voltageCheck.highest.percent, 1),
       res.neutral ? fixed(res.neutral.current.magnitude, 1) : '',
       res.unbalance ? fixed(res.unbalance.voltageFactorPercent, 2) : '',
       fixed(res.totals.kW, 2),
@@ -156,7 +156,7 @@ export function renderInstallationReport(r: InstallationResult, options: Install
   const parts = [
     [r.installation.name, `${SYSTEM_WORDS[r.installation.system] ?? r.installation.system} · ${volts} · ${first.frequencyHz} Hz · ${r.installation.boardCount} board${r.installation.boardCount === 1 ? '' : 's'}`].join('\n'),
     ...collapseBlock(r),
-    section('Boards') + boardTable(r) + `\n${note("own: this board's circuits; fed: what its feeder delivers, boards beyond it included.")}`,
+    section('Boards') + boardTable(r) + `\n${note("min and max %nom: the lowest and highest voltage the limits judge (line-to-neutral, line-to-line, at the loads); own: this board's circuits; fed: what its feeder delivers, boards beyond it included.")}`,
     section('Feeders') +
       feederTable(r) +
       `\n${note('drop: |V| at the sending end minus |V| at the board, the phase that changes most (negative: a rise), % of nominal; for the service feeder, from the source EMF. loss: conductor losses, the service feeder\'s with the source windings.')}` +
@@ -166,7 +166,7 @@ export function renderInstallationReport(r: InstallationResult, options: Install
         `  loads       ${fixed(t.loadKW, 3)} kW  ${fixed(t.loadKvar, 3)} kvar`,
         `  losses      ${fixed(t.lossesKW, 3)} kW  (source windings and every feeder)`,
         `  from source ${fixed(t.sourceKW, 3)} kW  ${fixed(t.sourceKvar, 3)} kvar`,
-        `  lowest phase voltage ${fixed(t.lowestVoltagePercent, 1)} % of nominal, at ${t.lowestVoltageBoard}`,
+        `  lowest voltage ${fixed(t.lowestVoltagePercent, 1)} % of nominal, at ${t.lowestVoltageBoard} (${t.lowestVoltageAt})`,
         limitsLine(r),
         ...banksLine(r),
       ].join('\n'),

@@ -38,8 +38,9 @@ function summaryRows(before: ProfileSummary, a: ProfileSummary | null, steps: re
     add('hours over limit', where, (s) => s.conductors[k]!.hoursAboveLimit, 'h');
   });
   before.voltages.forEach((v, k) => {
-    add('lowest voltage', `phase ${label(v.phase)}`, (s) => s.voltages[k]!.minPercent, '% of nominal');
-    add('highest voltage', `phase ${label(v.phase)}`, (s) => s.voltages[k]!.maxPercent, '% of nominal');
+    const where = v.phase.includes('-') ? `line-to-line ${label(v.phase)}` : `phase ${label(v.phase)}`;
+    add('lowest voltage', where, (s) => s.voltages[k]!.minPercent, '% of nominal');
+    add('highest voltage', where, (s) => s.voltages[k]!.maxPercent, '% of nominal');
   });
   add('hours below voltage limit', 'board', (s) => s.hoursVoltageLow, 'h');
   add('hours above voltage limit', 'board', (s) => s.hoursVoltageHigh, 'h');

@@ -46,7 +46,7 @@ export function currentTable(s: ProfileSummary, label: PhaseLabeller): string {
 
 export function voltageTable(s: ProfileSummary, label: PhaseLabeller): string {
   return renderTable(
-    [{ header: 'phase', align: 'left' }, { header: 'lowest %' }, { header: 'at', align: 'left' }, { header: 'highest %' }, { header: 'at', align: 'left' }],
+    [{ header: 'voltage', align: 'left' }, { header: 'lowest %' }, { header: 'at', align: 'left' }, { header: 'highest %' }, { header: 'at', align: 'left' }],
     s.voltages.map((v) => [label(v.phase), fixed(v.minPercent, 1), v.minAt, fixed(v.maxPercent, 1), v.maxAt]),
   );
 }
@@ -153,7 +153,7 @@ export function bankLines(r: { readonly bank: ProfileResult['bank']; readonly be
           `  board PF below ${pf(set.targetPf)} with the bank: ${hours(b.belowTarget.hours)} h of import, ${hours(b.belowTarget.stepTooCoarseHours)} h of them with no step small enough to stay under ${pf(set.upperPf!)} (steps coarse for this band at that load)`,
         ]
       : []),
-    `  largest voltage rise from the bank ${fixed(b.voltageRisePercent, 2)} % of nominal (${b.voltageRiseAt}); highest phase voltage with it ${fixed(Math.max(...b.after.voltages.map((v) => v.maxPercent)), 1)} %`,
+    `  largest voltage rise from the bank ${fixed(b.voltageRisePercent, 2)} % of nominal (${b.voltageRiseAt}); highest voltage with it ${fixed(Math.max(...b.after.voltages.map((v) => v.maxPercent)), 1)} %`,
   ];
   return lines.join('\n');
 }

@@ -63,9 +63,13 @@ export function analyseInstallation(solution: InstallationSolution, options: Ana
   const { order } = feedingOrder(installation);
   const depth = new Array<number>(solution.boards.length).fill(1);
   for (const b of order) if (b !== 0) depth[b] = depth[parentOf(b)!]! + 1;
-  let lowest = { percent: Infinity, board: nameOf(0) };
-  for (const b of order)
-    for (const p of results[b]!.phases) if (p.voltagePercent < lowest.percent) lowest = { percent: p.voltagePercent, board: nameOf(b) };
+  // The lowest voltage the limits judge (line-to-neutral, line-to-line, at the loads: voltageCheck.ts), so the
+  // figure agrees with every board's verdict.
+  let lowest = { percent: Infinity, board: nameOf(0), at: '' };
+  for (const b of order) {
+    const l = results[b]!.voltageCheck.lowest;
+    if (l.percent < lowest.percent) lowest = { percent: l.percent, board: nameOf(b), at: l.at };
+  }
   const sum = (f: (r: BoardResult) => number) => results.reduce((t, r) => t + f(r), 0);
   return {
     installation: { name: installation.name, system: main.system, boardCount: results.length },
@@ -80,6 +84,7 @@ export function analyseInstallation(solution: InstallationSolution, options: Ana
       lossesKW: sum((r) => r.losses.totalKW),
       lowestVoltagePercent: lowest.percent,
       lowestVoltageBoard: lowest.board,
+      lowestVoltageAt: lowest.at,
     },
   };
 }

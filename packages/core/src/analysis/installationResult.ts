@@ -70,8 +70,12 @@ export interface InstallationResult {
     readonly loadKvar: number;
     /** Source windings and every feeder. */
     readonly lossesKW: number;
-    /** The lowest phase voltage anywhere, % of nominal, and the board it is on. */
+    /**
+     * The lowest voltage the limits judge anywhere (each board's `voltageCheck.lowest`: line-to-neutral,
+     * line-to-line, at the loads), % of nominal, the board it is on and which voltage it is ("line-to-line A-B").
+     */
     readonly lowestVoltagePercent: number;
     readonly lowestVoltageBoard: string;
+    readonly lowestVoltageAt: string;
   };
 }

@@ -37,6 +37,7 @@ export interface BoardEffect {
   /** True for the board the equipment is on. */
   readonly hasEquipment: boolean;
   readonly lines: readonly IncomerLineEffect[];
+  /** The lowest and highest voltage the board's limits judge (its `voltageCheck`: line-to-neutral, line-to-line, at the loads), % of nominal. */
   readonly lowestVoltagePercent: BeforeAfter;
   readonly highestVoltagePercent: BeforeAfter;
   /** Branches of the board's own circuits outside its voltage band, as its over- and undervoltage warnings count them (the added equipment not counted). */
@@ -71,6 +72,7 @@ export interface SupplyEffect {
   readonly pf: BeforeAfter;
   /** Source windings and every feeder, kW. */
   readonly lossesKW: BeforeAfter;
+  /** The lowest voltage the limits judge anywhere in the installation, % of nominal (`totals.lowestVoltagePercent`). */
   readonly lowestVoltagePercent: BeforeAfter;
   /** Transformer loading, % of rated current; null without a transformer. */
   readonly transformerLoadingPercent: BeforeAfter | null;
@@ -106,7 +108,6 @@ function boardEffect(before: InstallationResult, after: InstallationResult, inde
   const ra = a.result;
   const fb = before.feeders[index]!;
   const fa = after.feeders[index]!;
-  const percents = (r: BoardResult) => r.phases.map((p) => p.voltagePercent);
   return {
     name: b.name,
     fedFrom: b.fedFrom,
@@ -123,8 +124,9 @@ function boardEffect(before: InstallationResult, after: InstallationResult, inde
         sense: { before: p.sense, after: q.sense },
       };
     }),
-    lowestVoltagePercent: beforeAfter(Math.min(...percents(rb)), Math.min(...percents(ra))),
-    highestVoltagePercent: beforeAfter(Math.max(...percents(rb)), Math.max(...percents(ra))),
+    // The voltages the limits judge (voltageCheck.ts), so the figures agree with the board's verdict.
+    lowestVoltagePercent: beforeAfter(rb.voltageCheck.lowest.percent, ra.voltageCheck.lowest.percent),
+    highestVoltagePercent: beforeAfter(rb.voltageCheck.highest.percent, ra.voltageCheck.highest.percent),
     loadsOutsideVoltageBand: beforeAfter(outsideBand(rb), outsideBand(ra)),
     neutralCurrentA: pair(rb.neutral?.current.magnitude, ra.neutral?.current.magnitude),
     // A board with no power (nothing on it, or nothing beyond it) has no PF: null, as a board result says.

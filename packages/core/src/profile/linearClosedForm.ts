@@ -8,6 +8,7 @@
  */
 import type { BatchNetwork, DriverColumns } from './batchNetwork.js';
 import { closedFormBlocker } from './closedFormKernel.js';
+import { modulus } from './batchKernel.js';
 import type { IntervalFigures } from './solveBatch.js';
 
 const H = Math.sqrt(3) / 2;
@@ -53,6 +54,7 @@ export function solveLinearClosedForm(net: BatchNetwork, columns: DriverColumns,
   const s = board.sequence === 'ABC' ? H : -H;
   const [a0, a1, a2] = out.lineA as [Float64Array, Float64Array, Float64Array];
   const [u0, u1, u2] = out.phaseV as [Float64Array, Float64Array, Float64Array];
+  const [l01, l12, l20] = out.lineToLineV as [Float64Array, Float64Array, Float64Array];
   const [w0, w1, w2] = out.phaseW as [Float64Array, Float64Array, Float64Array];
   const [q0, q1, q2] = out.phaseVar as [Float64Array, Float64Array, Float64Array];
   const neutral = out.neutralA;
@@ -155,6 +157,9 @@ export function solveLinearClosedForm(net: BatchNetwork, columns: DriverColumns,
     u2[i] = Math.sqrt(vr * vr + vi * vi);
     w2[i] = vr * i2r + vi * i2i;
     q2[i] = vi * i2r - vr * i2i;
+    l01[i] = modulus(b0r - b1r, b0i - b1i);
+    l12[i] = modulus(b1r - b2r, b1i - b2i);
+    l20[i] = modulus(b2r - b0r, b2i - b0i);
     // |V2|/|V1| of the bus voltages (see recordInterval).
     const sumR = b0r - 0.5 * (b1r + b2r);
     const sumI = b0i - 0.5 * (b1i + b2i);

@@ -18,6 +18,8 @@ export interface IntervalFigures {
   readonly neutralA: Float64Array;
   /** Phase voltage magnitude per phase (to the neutral bar, or the virtual neutral on 3-wire), V. */
   readonly phaseV: readonly Float64Array[];
+  /** Line-to-line voltage magnitude per pair (`lineToLinePairs`: A-B, B-C, C-A; A-B on two lines; none on one), V. */
+  readonly lineToLineV: readonly Float64Array[];
   /** Per-phase active and reactive power at the board (load convention), W and var. */
   readonly phaseW: readonly Float64Array[];
   readonly phaseVar: readonly Float64Array[];
@@ -25,13 +27,18 @@ export interface IntervalFigures {
   readonly unbalancePercent: Float64Array;
 }
 
+/** The line pairs of a board of `phases` lines, in the order `lineToLineV` holds them. */
+export const lineToLinePairs = (phases: number): readonly (readonly [number, number])[] =>
+  phases === 3 ? [[0, 1], [1, 2], [2, 0]] : phases === 2 ? [[0, 1]] : [];
+
 export function allocateFigures(count: number, phases: number): IntervalFigures {
-  const cols = () => Array.from({ length: phases }, () => new Float64Array(count));
+  const cols = (n = phases) => Array.from({ length: n }, () => new Float64Array(count));
   return {
     count,
     lineA: cols(),
     neutralA: new Float64Array(count),
     phaseV: cols(),
+    lineToLineV: cols(lineToLinePairs(phases).length),
     phaseW: cols(),
     phaseVar: cols(),
     unbalancePercent: new Float64Array(count),
@@ -57,6 +64,11 @@ export function recordInterval(state: IntervalState, sequence: 'ABC' | 'ACB', ou
     out.phaseVar[k]![i] = vi * ir - vr * ii;
   }
   out.neutralA[i] = modulus(state.neutral[0]!, state.neutral[1]!);
+  const pairs = lineToLinePairs(np);
+  for (let p = 0; p < pairs.length; p++) {
+    const [x, y] = pairs[p]!;
+    out.lineToLineV[p]![i] = modulus(state.busRe[x]! - state.busRe[y]!, state.busIm[x]! - state.busIm[y]!);
+  }
   if (np === 3) {
     // V1 = Va + a·Vb + a²·Vc, V2 = Va + a²·Vb + a·Vc (the 1/3 cancels in the ratio), with
     // a·x = (−½ + jH)·x; ACB swaps a and a² (s = −1).

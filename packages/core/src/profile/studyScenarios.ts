@@ -22,6 +22,7 @@ export interface ScenarioReading {
   readonly hours: number;
   readonly lineA: readonly number[];
   readonly neutralA: number | null;
+  /** The lowest and highest voltage the limits judge (line-to-neutral where there is a neutral, line-to-line), % of nominal. */
   readonly lowestVoltagePercent: number;
   readonly highestVoltagePercent: number;
   readonly unbalancePercent: number | null;
@@ -91,7 +92,12 @@ export function readBoardScenarios(board: Board, figures: IntervalFigures, scena
       q += figures.phaseVar[p]![k]!;
     }
     if (Math.hypot(w, q) < powerFloorVA) w = q = 0;
-    const volts = figures.phaseV.map((c) => c[k]! * vPct);
+    // The voltages the board's limits judge: phases where a neutral gives them meaning, and every line pair.
+    const llPct = 100 / (board.nominalLineToLineV ?? board.nominalLineToNeutralV);
+    const volts = [
+      ...(board.hasNeutral || figures.lineToLineV.length === 0 ? figures.phaseV.map((c) => c[k]! * vPct) : []),
+      ...figures.lineToLineV.map((c) => c[k]! * llPct),
+    ];
     return {
       name: s.name,
       hours: hours[k]!,

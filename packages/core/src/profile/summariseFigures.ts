@@ -5,7 +5,7 @@
 import { SUPPLY_LIMITS } from '../analysis/readSupplyState.js';
 import { asPrinted, type VoltageLimits } from '../board/conventions/voltageLimits.js';
 import { lineRatingOf, type Board } from '../board/boardModel.js';
-import type { IntervalFigures } from './solveBatch.js';
+import { lineToLinePairs, type IntervalFigures } from './solveBatch.js';
 import { countWhere, maximumOf, minimumOf, percentilesOf, topIndices } from './intervalStatistics.js';
 import { billMonths, type MonthReading } from './monthlyBilling.js';
 import type { TariffSpec } from './profileSpec.js';
@@ -26,6 +26,7 @@ export interface ConductorSummary {
 }
 
 export interface VoltageSummary {
+  /** The voltage: a phase ("A", to the neutral bar) or a line pair ("A-B"). */
   readonly phase: string;
   readonly minPercent: number;
   readonly minAt: string;
@@ -44,7 +45,7 @@ export interface WorstInterval {
 export interface ResolvedLimits {
   readonly unbalancePercent: number;
   readonly neutralA: number | null;
-  /** Phase voltages below this (% of nominal, judged as printed to 0.1 %) count as low. */
+  /** Voltages below this (% of their nominal, judged as printed to 0.1 %) count as low: line-to-neutral and line-to-line, as `voltages` lists them. */
   readonly voltageLowPercent: number;
   readonly voltageHighPercent: number;
   /** Where the voltage band comes from: the board's own limits (their preset, or `custom`), or the study's `profile.limits`. */
@@ -54,6 +55,10 @@ export interface ResolvedLimits {
 export interface ProfileSummary {
   readonly hours: number;
   readonly conductors: readonly ConductorSummary[];
+  /**
+   * The voltages the board's limits judge (as voltageCheck.ts does for one solve): each phase to the neutral
+   * bar where there is a neutral (or no line pair), then each line pair, % of the matching nominal.
+   */
   readonly voltages: readonly VoltageSummary[];
   readonly hoursVoltageLow: number;
   readonly hoursVoltageHigh: number;
@@ -121,10 +126,17 @@ export function summariseFigures(f: IntervalFigures, ctx: SummaryContext): Profi
   const conductors = board.phases.map((p, k) => conductor(p, f.lineA[k]!, lineRatingOf(board, k)));
   if (board.hasNeutral) conductors.push(conductor('N', f.neutralA, limits.neutralA));
   const vPct = 100 / board.nominalLineToNeutralV;
-  const voltages = board.phases.map((p, k) => {
-    const lo = minimumOf(f.phaseV[k]!);
-    const hi = maximumOf(f.phaseV[k]!);
-    return { phase: p, minPercent: lo.value * vPct, minAt: ctx.label(lo.index), maxPercent: hi.value * vPct, maxAt: ctx.label(hi.index) };
+  const pairs = lineToLinePairs(board.phases.length);
+  const llNominal = board.nominalLineToLineV ?? board.nominalLineToNeutralV;
+  // Each judged voltage as a column in % of its nominal: phase voltages only where a neutral gives them meaning.
+  const judged: { name: string; column: Float64Array; toPercent: number }[] = [
+    ...(board.hasNeutral || pairs.length === 0 ? board.phases.map((p, k) => ({ name: p as string, column: f.phaseV[k]!, toPercent: vPct })) : []),
+    ...pairs.map(([x, y], k) => ({ name: `${board.phases[x]}-${board.phases[y]}`, column: f.lineToLineV[k]!, toPercent: 100 / llNominal })),
+  ];
+  const voltages = judged.map(({ name, column, toPercent }) => {
+    const lo = minimumOf(column);
+    const hi = maximumOf(column);
+    return { phase: name, minPercent: lo.value * toPercent, minAt: ctx.label(lo.index), maxPercent: hi.value * toPercent, maxAt: ctx.label(hi.index) };
   });
   let low = 0;
   let high = 0;
@@ -133,14 +145,18 @@ export function summariseFigures(f: IntervalFigures, ctx: SummaryContext): Profi
   for (let i = 0; i < n; i++) {
     let lo = Number.POSITIVE_INFINITY;
     let hi = 0;
-    for (const col of f.phaseV) {
-      if (col[i]! < lo) lo = col[i]!;
-      if (col[i]! > hi) hi = col[i]!;
+    for (let j = 0; j < judged.length; j++) {
+      const percent = judged[j]!.column[i]! * judged[j]!.toPercent;
+      if (percent < lo) lo = percent;
+      if (percent > hi) hi = percent;
     }
     // Judged as printed (0.1 %), as the board's voltage verdict is, so the lowest and highest printed beside the hours agree with them.
-    if (asPrinted(lo * vPct) < limits.voltageLowPercent) low++;
-    if (asPrinted(hi * vPct) > limits.voltageHighPercent) high++;
-    if (lo < collapseV) collapsed++;
+    if (asPrinted(lo) < limits.voltageLowPercent) low++;
+    if (asPrinted(hi) > limits.voltageHighPercent) high++;
+    // A collapse is a phase below half its nominal (the supply's rule), whichever voltages are judged.
+    let phaseLow = Number.POSITIVE_INFINITY;
+    for (const col of f.phaseV) if (col[i]! < phaseLow) phaseLow = col[i]!;
+    if (phaseLow < collapseV) collapsed++;
   }
   const totalW = new Float64Array(n);
   const totalVar = new Float64Array(n);

@@ -96,7 +96,7 @@ export function renderOneLineDiagram(result: InstallationResult, options: OneLin
   const legendTop = layout.bottom + 28;
   const legendWidth = width - 2 * L.margin;
   const legend = wrapToWidth(
-    'Feeder labels: line currents, then the neutral current and the largest drop along the feeder (% of nominal line-to-neutral voltage); thicker runs carry more current. Box: the board, the range of its phase voltages (% of nominal), its own load; the heaviest outline marks the lowest voltage in the installation.',
+    'Feeder labels: line currents, then the neutral current and the largest drop along the feeder (% of nominal line-to-neutral voltage); thicker runs carry more current. Box: the board, the range of the voltages its limits judge (% of nominal: line-to-neutral, line-to-line, at the loads), its own load; the heaviest outline marks the lowest voltage in the installation.',
     legendWidth,
     10.5,
   );
@@ -145,9 +145,9 @@ export function renderOneLineDiagram(result: InstallationResult, options: OneLin
   for (const p of layout.boards) {
     const r = p.board.result;
     const x = p.x;
-    const percents = r.phases.map((ph) => ph.voltagePercent);
-    const lo = Math.min(...percents);
-    const hi = Math.max(...percents);
+    // The voltages the board's limits judge (line-to-neutral, line-to-line, at the loads), as the reports give them.
+    const lo = r.voltageCheck.lowest.percent;
+    const hi = r.voltageCheck.highest.percent;
     const warnings = r.warnings.length;
     const isLowest = p.board.name === lowest;
     const detail1 = `V ${fixed(lo, 1)}–${fixed(hi, 1)} %nom${isLowest ? ' · lowest' : ''}`;

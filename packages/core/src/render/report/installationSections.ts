@@ -140,7 +140,7 @@ export function totalsSection(result: InstallationResult): ReportSection {
     ['Losses (source windings and every feeder)', `${fixed(t.lossesKW, 3)} kW`],
     ['From the source', `${fixed(t.sourceKW, 2)} kW, ${fixed(t.sourceKvar, 2)} kvar, ${fixed(sourceKVA, 2)} kVA`],
     ['Power factor at the source, kW / |kVA|', sourceKVA > 0 ? fixed(t.sourceKW / sourceKVA, 3) : '—'],
-    ['Lowest phase voltage', `${fixed(t.lowestVoltagePercent, 1)} % of nominal, at ${t.lowestVoltageBoard}`],
+    ['Lowest voltage', `${fixed(t.lowestVoltagePercent, 1)} % of nominal, at ${t.lowestVoltageBoard} (${t.lowestVoltageAt})`],
   ];
   if (result.banksInService.length)
     items.push(['Capacitor banks in service', `${result.banksInService.map((b) => bankInServiceWords(b, b.deliveredKvar)).join('; ')} — ${BANKS_IN_SERVICE_BASIS}`]);

@@ -63,8 +63,8 @@ function boardBlocks(p: BoardProfileView, charts: readonly ProfileChart[], namin
     },
     {
       kind: 'table',
-      caption: 'Phase voltages over the period, % of nominal',
-      columns: [{ label: 'Phase' }, { label: 'Lowest %', align: 'right' }, { label: 'When' }, { label: 'Highest %', align: 'right' }, { label: 'When' }],
+      caption: 'Voltages over the period, % of nominal (line-to-neutral where there is a neutral, and line-to-line)',
+      columns: [{ label: 'Voltage' }, { label: 'Lowest %', align: 'right' }, { label: 'When' }, { label: 'Highest %', align: 'right' }, { label: 'When' }],
       rows: s.voltages.map((v) => [label(v.phase), fixed(v.minPercent, 1), v.minAt, fixed(v.maxPercent, 1), v.maxAt]),
     },
     ...charts.map((c): ReportBlock => ({ kind: 'figure', name: `${figurePrefix}${c.name}`, caption: c.caption, svg: c.svg })),
