@@ -307,3 +307,36 @@ describe('the effect on a board already outside its band', () => {
   });
 });
 
+
+describe('what the equipment makes worse on the boards it is fed through', () => {
+  // An invented fabrication shop: two spot welders across line pairs on a sub-board. A star bank
+  // correcting each line's PF puts unequal capacitance on the three lines, so its capacitor currents do
+  // not cancel in the neutral: the neutral of the weld bay and of the main board's incomer both rise.
+  const spec = {
+    name: 'Fabrication shop',
+    supply: { voltage: '230/400', frequencyHz: 50, transformer: { kVA: 400, impedancePercent: 4.5, xOverR: 5 } },
+    boards: [
+      { name: 'Main', feeder: { lengthM: 15, line: { mm2: 240 }, neutral: { mm2: 240 } }, loads: [{ name: 'Yard lights', connection: 'A-N', kW: 3, pf: 0.9 }] },
+      {
+        name: 'Weld bay',
+        fedFrom: 'Main',
+        feeder: { lengthM: 70, line: { mm2: 95 }, neutral: { mm2: 50 } },
+        loads: [
+          { name: 'Spot welder 1', connection: 'A-B', kW: 30, pf: 0.55 },
+          { name: 'Spot welder 2', connection: 'B-C', kW: 18, pf: 0.6 },
+        ],
+      },
+    ],
+  } as unknown as InstallationSpec;
+  const corrected = correctInstallation(installationOf(parseInstallation(spec)), { arrangement: 'star-bank' }, { board: 'Weld bay' });
+  const main = corrected.effect.boards.find((b) => b.name === 'Main')!;
+
+  it('the main board incomer neutral rise is a warning of the effect, with its figures', () => {
+    expect(main.neutralCurrentA!.after - main.neutralCurrentA!.before).toBeGreaterThan(Math.max(0.1 * main.neutralCurrentA!.before, 1));
+    const w = corrected.effect.otherBoards.find((x) => x.board === 'Main' && x.code === 'neutral-worse');
+    expect(w?.message).toContain(`from ${main.neutralCurrentA!.before.toFixed(1)} A to ${main.neutralCurrentA!.after.toFixed(1)} A`);
+    // The equipment's own board is the verification's business, not repeated here.
+    expect(corrected.effect.otherBoards.some((x) => x.board === 'Weld bay')).toBe(false);
+    expect(corrected.report.verification.warnings.some((x) => x.code === 'neutral-worse')).toBe(true);
+  });
+});

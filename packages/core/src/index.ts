@@ -131,7 +131,7 @@ export type { CorrectionComparison, ArrangementOutcome, ArrangementFigures } fro
 export { compareCorrections } from './correction/compareCorrections.js';
 export type { InstallationCorrection, InstallationComparison, CorrectInstallationOptions, ReplacedBank, OtherBankInService, LeadingWithBanks } from './correction/correctInstallation.js';
 export { correctInstallation, compareInstallationCorrections, installationBoardIndex } from './correction/correctInstallation.js';
-export type { InstallationEffect, BoardEffect, IncomerLineEffect, SupplyEffect } from './correction/installationEffect.js';
+export type { InstallationEffect, BoardEffect, IncomerLineEffect, OtherBoardWarning, SupplyEffect } from './correction/installationEffect.js';
 export { installationEffect } from './correction/installationEffect.js';
 export { ORIGIN_POINT, meteringPoints, meteringPointIssues } from './correction/meteringPoint.js';
 export type * from './correction/correctionResult.js';

@@ -106,11 +106,14 @@ export function renderInstallationEffect(e: InstallationEffect): string {
   const band = outside.length
     ? `\n${outside.map((b) => wrapText(`${b.name}: ${b.loadsOutsideVoltageBand.before} → ${b.loadsOutsideVoltageBand.after} load(s) outside the voltage band`, '  ! ', '    ')).join('\n')}`
     : `\n  every load stays inside the voltage band before and after`;
+  // What the equipment makes worse on the boards it feeds through (its own board's are in the warnings above).
+  const others = e.otherBoards.map((w) => `\n${wrapText(`${w.board}: ${w.message}`, '  ! ', '    ')}`).join('');
   return (
     section('Every board, before → after (the whole installation re-solved with the equipment)') +
     boardTable(e) +
     `\n${note("* the board the equipment is on. At each board's incomer (everything its feeder carries): lowest voltage the limits judge, largest line current, neutral current, vector PF |ΣP|/|ΣS|, |I2|/|I1|, reactive power in (+ lagging). Per line: --json.")}` +
     band +
+    others +
     '\n' +
     section('Feeders, before → after') +
     feederTable(e) +

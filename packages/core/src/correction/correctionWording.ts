@@ -141,7 +141,7 @@ export const warningText = {
   windowMissed: (branch: PhaseLabel, limit: string = NO_LEADING_LIMIT) =>
     `branch ${branch}: no combination of units guarantees the target at the lowest capacitance tolerance without exceeding the ${limit} at the highest; the choice meets the target at nominal capacitance`,
   toleranceLow: (shortfalls: readonly string[]) => `with capacitance at the low end of its tolerance the target is missed: ${shortfalls.join('; ')}`,
-  toleranceHigh: (phases: readonly PhaseLabel[]) => `with capacitance at the high end of its tolerance line${phases.length > 1 ? 's' : ''} ${phases.join(', ')} lead`,
+  toleranceHigh: (phases: readonly PhaseLabel[]) => `with capacitance at the high end of its tolerance ${phases.length > 1 ? `lines ${phases.join(', ')} lead` : `line ${phases[0]} leads`}`,
   lightLoadLagging: (reactorKvar: number, lines: readonly { phase: PhaseLabel; pf: number; before: number | null }[]) =>
     `at light load the fixed part, ${reactorKvar.toFixed(2)} kvar inductive net (its reactors stay connected), leaves ${lines.map((l) => `line ${l.phase} at PF ${f3(l.pf)} lagging${l.before === null ? '' : ` (${f3(l.before)} without the equipment)`}`).join(', ')}: switch the reactors with the load, or expect this reactive draw whenever the board runs light`,
   lightLoadLeading: (phases: readonly PhaseLabel[]) =>

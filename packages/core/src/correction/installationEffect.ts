@@ -14,6 +14,9 @@ import { addCorrectionEquipment, type EquipmentGroup } from './equipment.js';
 import type { BeforeAfter, PfBeforeAfter } from './correctionResult.js';
 import { beforeAfter, pfBeforeAfter } from './_internal/branchReadings.js';
 import { judgeVoltage } from '../board/conventions/voltageLimits.js';
+import { balanceWorsening } from './balanceWorsening.js';
+import { overloadsCaused } from './overloadsCaused.js';
+import { warningText } from './correctionWording.js';
 
 /** One line at a board's incomer, before and after. */
 export interface IncomerLineEffect {
@@ -78,11 +81,24 @@ export interface SupplyEffect {
   readonly transformerLoadingPercent: BeforeAfter | null;
 }
 
+/**
+ * What the equipment makes worse on a board other than its own (its own board's are the verification's
+ * warnings): an overload it causes, the neutral current or the current unbalance notably up (the
+ * thresholds of balanceWorsening.ts).
+ */
+export interface OtherBoardWarning {
+  readonly board: string;
+  readonly code: 'overload-caused' | 'neutral-worse' | 'unbalance-worse';
+  readonly message: string;
+}
+
 export interface InstallationEffect {
   /** The board the equipment is on. */
   readonly board: string;
   /** Boards in feeding order, main board first. */
   readonly boards: readonly BoardEffect[];
+  /** The other boards' warnings, main board first. */
+  readonly otherBoards: readonly OtherBoardWarning[];
   readonly supply: SupplyEffect;
   /** The two installation solves the figures come from. */
   readonly before: InstallationResult;
@@ -163,6 +179,27 @@ function supplyEffect(before: InstallationResult, after: InstallationResult): Su
   };
 }
 
+/** Each other board's incomer, without and with the equipment: what it makes worse there (see OtherBoardWarning). */
+function otherBoardWarnings(before: InstallationResult, after: InstallationResult, equipmentBoard: string): OtherBoardWarning[] {
+  return before.boards.flatMap((b, i): OtherBoardWarning[] => {
+    if (b.name === equipmentBoard) return [];
+    const rb = b.result;
+    const ra = after.boards[i]!.result;
+    const overloads = overloadsCaused(rb, ra);
+    return [
+      ...overloads.map((o): OtherBoardWarning => ({ board: b.name, code: 'overload-caused', message: warningText.overloadCaused(o.message) })),
+      ...balanceWorsening(rb, ra)
+        // A neutral the equipment takes over its rating is said once, as the overload.
+        .filter((w) => !(w.code === 'neutral-worse' && overloads.some((o) => o.code === 'neutral-over-rating')))
+        .map((w): OtherBoardWarning => ({
+          board: b.name,
+          code: w.code,
+          message: w.code === 'unbalance-worse' ? warningText.unbalanceWorse(w.before, w.after, w.threshold) : warningText.neutralWorse(w.before, w.after, ra.neutral?.ratingA ?? null),
+        })),
+    ];
+  });
+}
+
 /**
  * Solves the installation `board` belongs to without and with `equipment` on `board`, and reads every board.
  * @param board a board with its place in an installation (`boardOfInstallation`); a lone board is the
@@ -180,6 +217,7 @@ export function installationEffect(board: Board, equipment: readonly EquipmentGr
   return {
     board: board.name,
     boards: before.boards.map((_, i) => boardEffect(before, after, i, board.name)),
+    otherBoards: otherBoardWarnings(before, after, board.name),
     supply: supplyEffect(before, after),
     before,
     after,

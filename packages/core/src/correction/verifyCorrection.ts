@@ -6,7 +6,7 @@
  */
 import * as z from 'zod';
 import type { Board, PhaseId } from '../board/boardModel.js';
-import type { BoardResult, BoardWarning } from '../analysis/boardResult.js';
+import type { BoardResult } from '../analysis/boardResult.js';
 import { analyseSolution, readTargetFigures, type TargetReadings } from '../analysis/analyseSolution.js';
 import { compileBoard, solveCompiledBoard, solveNetwork, type NetworkSolution, type SolveOptions } from '../network/solveNetwork.js';
 import { resolveSolveOptions } from '../network/solveOptions.js';
@@ -25,6 +25,7 @@ import { beforeAfter, branchSizings, lineComparisons } from './_internal/branchR
 import { checkRules, definedOnly, solveOptionsSchema } from './_internal/optionSchemas.js';
 import { parseOptions } from '../_internal/zodIssues.js';
 import { balanceWorsening } from './balanceWorsening.js';
+import { overloadsCaused } from './overloadsCaused.js';
 
 export interface VerifyCorrectionOptions {
   /** The equipment to add, e.g. `selection.equipment` or `sizing.equipment`. */
@@ -126,19 +127,6 @@ function equipmentValueSolver(corrected: Board, baseLoads: number, options: Solv
   };
 }
 
-/** The board's own overload warnings: a conductor, the supply transformer or one of its units above its rating. */
-const OVERLOAD_CODES: ReadonlySet<string> = new Set(['line-over-rating', 'neutral-over-rating', 'transformer-overload', 'source-unit-overload']);
-
-/**
- * Overload warnings the equipped board has that the board without the equipment did not: matched by
- * code and subject (the words with their figures taken out, so "line B carries 87 A" before and
- * "line B carries 93 A" after is the same overload, not a new one).
- */
-function overloadsCaused(before: BoardResult, after: BoardResult): BoardWarning[] {
-  const subject = (w: BoardWarning) => `${w.code}:${w.message.replace(/[\d.,]+/g, '#')}`;
-  const had = new Set(before.warnings.filter((w) => OVERLOAD_CODES.has(w.code)).map(subject));
-  return after.warnings.filter((w) => OVERLOAD_CODES.has(w.code) && !had.has(subject(w)));
-}
 
 export function verifyCorrection(board: Board, options: VerifyCorrectionOptions): CorrectionVerification {
   const opts = parseOptions(verifyOptionsSchema, options, 'verifyCorrection options');

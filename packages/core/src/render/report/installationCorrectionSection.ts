@@ -48,6 +48,8 @@ export function installationCorrectionSection(effect: InstallationEffect): Repor
         ]),
         note: 'PF at incomer: vector power factor |ΣP|/|ΣS| of what the board’s feeder carries. Incomer kvar above zero is lagging (taken from the board feeding it).',
       },
+      // What it makes worse on the boards it is fed through (its own board's warnings are the correction's).
+      ...(effect.otherBoards.length ? [{ kind: 'list' as const, tone: 'warning' as const, items: effect.otherBoards.map((w) => `${w.board}: ${w.message}`) }] : []),
       { kind: 'facts', items: supply },
     ],
   };
