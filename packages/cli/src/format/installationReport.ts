@@ -156,7 +156,7 @@ export function renderInstallationReport(r: InstallationResult, options: Install
   const parts = [
     [r.installation.name, `${SYSTEM_WORDS[r.installation.system] ?? r.installation.system} · ${volts} · ${first.frequencyHz} Hz · ${r.installation.boardCount} board${r.installation.boardCount === 1 ? '' : 's'}`].join('\n'),
     ...collapseBlock(r),
-    section('Boards') + boardTable(r) + `\n${note("min and max %nom: the lowest and highest voltage the limits judge (line-to-neutral, line-to-line, at the loads); own: this board's circuits; fed: what its feeder delivers, boards beyond it included.")}`,
+    section('Boards') + boardTable(r) + `\n${note("min and max %nom: the lowest and highest voltage the limits judge (line-to-neutral, line-to-line, at the loads); own: this board's circuits; fed: what enters its feeder at the sending end, the feeder's loss and the boards beyond it included (main board: what the source EMFs deliver).")}`,
     section('Feeders') +
       feederTable(r) +
       `\n${note('drop: |V| at the sending end minus |V| at the board, the phase that changes most (negative: a rise), % of nominal; for the service feeder, from the source EMF. loss: conductor losses, the service feeder\'s with the source windings.')}` +

@@ -89,7 +89,7 @@ export function installationDescription(spec: InstallationBaseSpec, result: Inst
       fixed(b.result.totals.kW, 2),
       fixed(b.result.source.kW, 2),
     ]),
-    note: "Own: the board's circuits. Fed: what its feeder delivers, the boards beyond it and the feeder's losses included.",
+    note: "Own: the board's circuits. Fed: what enters the board's feeder at its sending end: the boards beyond it and the feeder's losses included (for the main board, what the source EMFs deliver, the source windings' losses included).",
   });
   blocks.push({
     kind: 'figure',
@@ -165,7 +165,8 @@ export function boardSection(spec: InstallationBaseSpec, result: InstallationRes
       items: [
         ['Fed from', fedBy],
         ['Feeder', feederWords(spec, result, board.name)],
-        ['Feeder drop and loss', `${fixed(feeder.voltageDropPercent, 2)} % worst phase, ${fixed(feeder.lossesKW, 3)} kW`],
+        // The main board's figures count from the source EMF: the source windings are in them, feeder or none.
+        [board.fedFrom === null ? 'Drop and loss from the source (source windings and service feeder)' : 'Feeder drop and loss', `${fixed(feeder.voltageDropPercent, 2)} % worst phase, ${fixed(feeder.lossesKW, 3)} kW`],
         ['Circuits', `${own.loads.length}`],
       ],
     },
