@@ -340,3 +340,33 @@ describe('what the equipment makes worse on the boards it is fed through', () =>
     expect(corrected.report.verification.warnings.some((x) => x.code === 'neutral-worse')).toBe(true);
   });
 });
+
+describe('an open-delta supply: each unit’s loading before and after the equipment', () => {
+  it('reads the main board’s source units in both solves, the overloaded unit relieved', () => {
+    // An invented farm on an open delta, the smaller unit overloaded by a barn of motors.
+    const spec = parseInstallation({
+      name: 'Open-delta farm',
+      supply: { system: 'three-phase-3wire', voltage: { lineToLine: 240 }, frequencyHz: 60, openDelta: { 'A-B': { kVA: 50, impedancePercent: 2.5, xOverR: 2 }, 'B-C': { kVA: 25, impedancePercent: 2.8, xOverR: 2 } } },
+      boards: [
+        { name: 'Service', loads: [{ name: 'Dryer fan', connection: 'ABC-delta', kW: 15, pf: 0.85 }, { name: 'Welder', connection: 'A-B', kW: 8, pf: 0.7 }] },
+        {
+          name: 'Barn',
+          fedFrom: 'Service',
+          feeder: { lengthFt: 400, line: { awg: '2', material: 'aluminum' } },
+          loads: [{ name: 'Vacuum pump', connection: 'ABC-delta', kW: 7.5, pf: 0.82 }, { name: 'Water heater', connection: 'B-C', kW: 6 }, { name: 'Cleaner', connection: 'C-A', kW: 3, pf: 0.75 }],
+        },
+      ],
+    } as unknown as InstallationSpec);
+    const corrected = correctInstallation(installationOf(spec), { arrangement: 'delta-bank' }, { board: 'Barn' });
+    const units = corrected.effect.supply.sourceUnitLoadingPercent!;
+    const before = corrected.effect.before.boards[0]!.result.sourceUnits!;
+    const after = corrected.effect.after.boards[0]!.result.sourceUnits!;
+    expect(units.map((u) => u.winding)).toEqual(['A-B', 'B-C']);
+    units.forEach((u, k) => {
+      expect(u.loading.before).toBe(before[k]!.loadingPercent);
+      expect(u.loading.after).toBe(after[k]!.loadingPercent);
+    });
+    expect(units[1]!.loading.before).toBeGreaterThan(100);
+    expect(units[1]!.loading.after).toBeLessThan(units[1]!.loading.before);
+  });
+});

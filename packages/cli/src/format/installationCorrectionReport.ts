@@ -5,6 +5,7 @@
 import {
   arrangementNames,
   banksPlacementWords,
+  labellerOf,
   meteringPointWords,
   type BeforeAfter,
   type InstallationComparison,
@@ -90,6 +91,7 @@ function feederTable(e: InstallationEffect): string {
 
 function supplyLines(e: InstallationEffect): string {
   const s = e.supply;
+  const label = labellerOf(e.before.boards[0]!.result.conventions.phaseNames);
   const row = (label: string, text: string) => `  ${label.padEnd(25)} ${text}`;
   return [
     row('from the source', `${change(s.kW, 2)} kW, ${change(s.kvar, 2)} kvar, ${change(s.kVA, 2)} kVA`),
@@ -97,6 +99,7 @@ function supplyLines(e: InstallationEffect): string {
     row('losses (source + feeders)', `${change(s.lossesKW, 3)} kW`),
     row('lowest voltage', `${change(s.lowestVoltagePercent, 1)} % of nominal`),
     ...(s.transformerLoadingPercent ? [row('transformer', `${change(s.transformerLoadingPercent, 0)} % of rated current`)] : []),
+    ...(s.sourceUnitLoadingPercent ? [row('supply units', `${s.sourceUnitLoadingPercent.map((u) => `${label(u.winding)} ${change(u.loading, 0)} %`).join(', ')} of rated current`)] : []),
   ].join('\n');
 }
 

@@ -79,6 +79,8 @@ export interface SupplyEffect {
   readonly lowestVoltagePercent: BeforeAfter;
   /** Transformer loading, % of rated current; null without a transformer. */
   readonly transformerLoadingPercent: BeforeAfter | null;
+  /** Each rated unit of a transformer bank or open delta (`sourceUnits` of the main board), % of its rated current; null without such units. */
+  readonly sourceUnitLoadingPercent: readonly { readonly winding: string; readonly loading: BeforeAfter }[] | null;
 }
 
 /**
@@ -161,6 +163,9 @@ function boardEffect(before: InstallationResult, after: InstallationResult, inde
   };
 }
 
+const unitsEffect = (b: BoardResult['sourceUnits'], a: BoardResult['sourceUnits']): SupplyEffect['sourceUnitLoadingPercent'] =>
+  b && a ? b.map((u, k) => ({ winding: u.winding, loading: beforeAfter(u.loadingPercent, a[k]!.loadingPercent) })) : null;
+
 const sumOf = (r: BoardResult, key: 'kW' | 'kvar') => r.phases.reduce((s, p) => s + p[key], 0);
 
 function supplyEffect(before: InstallationResult, after: InstallationResult): SupplyEffect {
@@ -176,6 +181,7 @@ function supplyEffect(before: InstallationResult, after: InstallationResult): Su
     lossesKW: beforeAfter(before.totals.lossesKW, after.totals.lossesKW),
     lowestVoltagePercent: beforeAfter(before.totals.lowestVoltagePercent, after.totals.lowestVoltagePercent),
     transformerLoadingPercent: tb && ta ? beforeAfter(tb.loadingPercent, ta.loadingPercent) : null,
+    sourceUnitLoadingPercent: unitsEffect(before.boards[0]!.result.sourceUnits, after.boards[0]!.result.sourceUnits),
   };
 }
 
