@@ -18,6 +18,7 @@ import { conventionsOf } from '../board/conventions/boardConventions.js';
 import { inputIssue, type InputIssue } from '../errors.js';
 import { bankPartIndices } from '../analysis/banksInServiceWords.js';
 import { meteredPhaseLoad, phaseTargetOf, planTargets, type ColumnPlan, type ColumnPlanOptions, type TargetResolver } from './columnPlan.js';
+import { ownEntry } from '../_internal/ownEntry.js';
 
 export interface InstallationColumnPlan extends ColumnPlan {
   /** Board number (0 = main, i + 1 = subBoards[i]) of each load in `board.loads`. */
@@ -134,9 +135,10 @@ function installationResolver(installation: Installation, groups: Readonly<Recor
         boards.push(metered.board);
         return { kind: 'phase', loads: [loads.push(meteredPhaseLoad(`${names[metered.board]}/metered phase ${label(metered.phase)}`, metered.phase, main.nominalLineToNeutralV)) - 1] };
       }
-      if (groups[name]) {
+      const group = ownEntry(groups, name);
+      if (group) {
         const members: number[] = [];
-        for (const [k, member] of groups[name]!.entries()) {
+        for (const [k, member] of group.entries()) {
           const l = oneLoad(member, `profile.groups.${name}[${k}]`, 'a load name on one board, or "<board>/<load>" (or "<board>//<load>")', issues);
           if (l === null) return null;
           members.push(l);
