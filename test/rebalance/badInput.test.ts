@@ -62,3 +62,50 @@ describe('rebalance: bad studies', () => {
     expect(() => rebalanceBoard(normaliseBoard(parseBoard(fourWire)), {}, { nodeBudget: -5 } as never)).toThrow(/nodeBudget/);
   });
 });
+
+describe('rebalance: a caller objective that gives no usable score', () => {
+  const board = normaliseBoard(parseBoard(fourWire));
+
+  it.each([
+    ['NaN', () => NaN, 'NaN'],
+    ['a string', () => '3', '"3"'],
+    ['minus infinity', () => -Infinity, '-Infinity'],
+    ['nothing', () => undefined, 'nothing'],
+  ])('%s: InputError at objective (it used to pass as a proven answer)', (_, objective, received) => {
+    try {
+      rebalanceBoard(board, {}, { objective: objective as never, moveTable: false });
+    } catch (error) {
+      expect(error).toBeInstanceOf(InputError);
+      const issue = (error as InputError).issues[0]!;
+      expect(issue.path).toBe('objective');
+      expect(issue.message).toMatch(/^objective: expected a finite number from the objective/);
+      expect(issue.message).toContain(`(received ${received})`);
+      return;
+    }
+    throw new Error('expected an InputError');
+  });
+
+  it('sees frozen copies: writing into them fails in the callback and leaves the report as solved', () => {
+    const neutralBefore = rebalanceBoard(board, {}, { moveTable: false }).conditions[0]!.solved.before.neutralA;
+    const seen: boolean[] = [];
+    const report = rebalanceBoard(board, {}, {
+      moveTable: false,
+      objective: (figures) => {
+        seen.push(Object.isFrozen(figures) && Object.isFrozen(figures[0]) && Object.isFrozen(figures[0]!.lineA));
+        return figures.reduce((s, f) => s + (f.neutralA ?? 0), 0);
+      },
+    });
+    expect(seen.length).toBeGreaterThan(0);
+    expect(seen.every(Boolean)).toBe(true);
+    expect(report.conditions[0]!.solved.before.neutralA).toBe(neutralBefore);
+    expect(() =>
+      rebalanceBoard(board, {}, {
+        moveTable: false,
+        objective: (figures) => {
+          (figures[0] as { neutralA: number | null }).neutralA = 99;
+          return 1;
+        },
+      }),
+    ).toThrow(TypeError);
+  });
+});

@@ -30,7 +30,7 @@ import {
 } from './assignmentProblem.js';
 import { magnitudeBoundsWithMoveLimit } from './assignmentBounds.js';
 import { buildAssignmentProblem, type BuiltProblem } from './buildAssignmentProblem.js';
-import { conditionFigures, builtInObjective, type ConditionFigures, type ConditionLayout, type RebalanceObjective } from './rebalanceObjective.js';
+import { conditionFigures, builtInObjective, guardedObjective, type ConditionFigures, type ConditionLayout, type RebalanceObjective } from './rebalanceObjective.js';
 import { resolveRebalanceSpec, type RebalanceContext, type ResolvedRebalance } from './rebalanceRules.js';
 import { rebalanceTree, type RebalanceTree } from './rebalanceTree.js';
 import { searchExact } from './searchExact.js';
@@ -108,7 +108,7 @@ function resolveOptions(options: RebalanceOptions): ResolvedOptions {
     kicks: options.kicks ?? 100,
     seed: options.seed ?? 1,
     moveTable: options.moveTable ?? true,
-    objective: options.objective,
+    objective: options.objective && guardedObjective(options.objective),
   };
 }
 
