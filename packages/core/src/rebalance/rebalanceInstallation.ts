@@ -77,7 +77,8 @@ export interface RebalanceOptions {
   readonly moveTable?: boolean;
   /**
    * Your own score of the condition figures (lower is better) instead of the
-   * aim weights. It must never fall when a figure grows (see `RebalanceObjective`).
+   * aim weights. It must never fall when a figure grows (see `RebalanceObjective`). It sees frozen
+   * copies of the figures; a score that is not a finite number is refused (InputError at `objective`).
    */
   readonly objective?: RebalanceObjective;
   /** The file's `profile:` section, read when the study's conditions are `"scenarios"`. */
