@@ -5,7 +5,7 @@
  */
 import { InputError, inputIssue, type InputIssue } from '../errors.js';
 import type { ColumnPlan } from './columnPlan.js';
-import { parseTimestamp, TIMESTAMP_EXPECTED } from './intervalTimestamp.js';
+import { EARLY_YEAR_EXPECTED, parseTimestamp, TIMESTAMP_EXPECTED } from './intervalTimestamp.js';
 import { createZoneClock, type ZoneClock } from './zoneClock.js';
 
 const MAX_ISSUES = 20;
@@ -102,7 +102,7 @@ export function createRowReader(plan: ColumnPlan, options: RowReaderOptions = {}
       }
       const t = parseTimestamp(record[0]!);
       if (!t.ok) {
-        report(inputIssue('bad_time', cellPath(plan, row, 0), TIMESTAMP_EXPECTED, record[0]));
+        report(inputIssue('bad_time', cellPath(plan, row, 0), t.tooEarly ? EARLY_YEAR_EXPECTED : TIMESTAMP_EXPECTED, record[0]));
         return;
       }
       let instant: number;
