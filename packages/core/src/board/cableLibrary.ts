@@ -22,7 +22,8 @@
  * conductor says so, 60 Hz; mm² sizes 0.08 Ω/km at 50 Hz, typical of multicore LV cable. Both
  * scale with the supply frequency.
  */
-import type { CONDUIT_KINDS } from './boardRanges.js';
+import { PHYSICAL_RANGES, type CONDUIT_KINDS } from './boardRanges.js';
+import { argumentIssueError, checkNumberArgument } from '../_internal/argumentChecks.js';
 
 export type ConductorMaterial = 'copper' | 'aluminium';
 
@@ -176,6 +177,11 @@ function gaugeOrder(key: string): number {
 
 /** Resistance of one conductor at `temperatureC`, or null when the size is not in the table. */
 export function conductorResistance(size: ConductorSize, material: ConductorMaterial, temperatureC?: number): ConductorResistance | null {
+  if (typeof size !== 'object' || size === null || !('mm2' in size || 'awg' in size || 'kcmil' in size)) throw argumentIssueError('size', 'a conductor size { mm2 }, { awg } or { kcmil }', size);
+  if (material !== 'copper' && material !== 'aluminium') throw argumentIssueError('material', '"copper" or "aluminium"', material);
+  // The board file's range: the linear temperature law holds there (it would reach zero resistance near −235 °C).
+  const { min, max } = PHYSICAL_RANGES.conductorTemperatureC;
+  if (temperatureC !== undefined) checkNumberArgument(temperatureC, 'temperatureC', `a conductor temperature from ${min} to ${max} °C`, (t) => t >= min && t <= max);
   if ('mm2' in size) {
     const value = IEC_60228_CLASS_2[material][String(size.mm2)];
     if (value === undefined) return null;

@@ -14,6 +14,7 @@ import { addCorrectionEquipment, type EquipmentGroup } from './equipment.js';
 import type { BeforeAfter, PfBeforeAfter } from './correctionResult.js';
 import { beforeAfter, pfBeforeAfter } from './_internal/branchReadings.js';
 import { judgeVoltage } from '../board/conventions/voltageLimits.js';
+import { assertBoardModel } from '../board/modelGuards.js';
 
 /** One line at a board's incomer, before and after. */
 export interface IncomerLineEffect {
@@ -172,6 +173,7 @@ function supplyEffect(before: InstallationResult, after: InstallationResult): Su
  * effect.boards[0].vectorPf //=> { before: 0.93…, after: 0.96…, change: 0.03… } at the main incomer
  */
 export function installationEffect(board: Board, equipment: readonly EquipmentGroup[], solve: SolveOptions = {}): InstallationEffect {
+  assertBoardModel(board);
   const analyse = (b: Board) => analyseInstallation(solveInstallationNetwork(installationOf(b).installation, solve), { ...solve, openNeutral: false });
   const before = analyse(board);
   const after = analyse(addCorrectionEquipment(board, equipment));

@@ -25,6 +25,7 @@ import { beforeAfter, branchSizings, lineComparisons } from './_internal/branchR
 import { checkRules, definedOnly, solveOptionsSchema } from './_internal/optionSchemas.js';
 import { parseOptions } from '../_internal/zodIssues.js';
 import { balanceWorsening } from './balanceWorsening.js';
+import { assertBoardModel } from '../board/modelGuards.js';
 
 export interface VerifyCorrectionOptions {
   /** The equipment to add, e.g. `selection.equipment` or `sizing.equipment`. */
@@ -141,6 +142,7 @@ function overloadsCaused(before: BoardResult, after: BoardResult): BoardWarning[
 }
 
 export function verifyCorrection(board: Board, options: VerifyCorrectionOptions): CorrectionVerification {
+  assertBoardModel(board);
   const opts = parseOptions(verifyOptionsSchema, options, 'verifyCorrection options');
   const arrangement = opts.arrangement ?? 'star-bank';
   checkRules(definedOnly({ arrangement, target: opts.target, lightLoad: opts.lightLoad }), board, 'verifyCorrection options');

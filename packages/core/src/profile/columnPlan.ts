@@ -15,6 +15,7 @@ import type { ComplexValue } from '../complex.js';
 import { InputError, inputIssue, type InputIssue } from '../errors.js';
 import type { DriverColumns, DriverSpec } from './batchNetwork.js';
 import { ownEntry } from '../_internal/ownEntry.js';
+import { assertBoardModel } from '../board/modelGuards.js';
 
 export const QUANTITIES = ['kW', 'kvar', 'pf', 'A', 'x'] as const;
 export type Quantity = (typeof QUANTITIES)[number];
@@ -126,6 +127,7 @@ function boardResolver(board: Board, groups: Readonly<Record<string, readonly st
  * @throws {InputError} naming each header cell that is wrong, with its column.
  */
 export function planColumns(board: Board, header: readonly string[], options: ColumnPlanOptions = {}): ColumnPlan {
+  assertBoardModel(board);
   const resolver = boardResolver(board, options.groups ?? {});
   return { board: { ...board, loads: resolver.loads }, ...planTargets(header, board.loads.length, resolver, options) };
 }

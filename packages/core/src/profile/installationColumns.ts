@@ -19,6 +19,7 @@ import { inputIssue, type InputIssue } from '../errors.js';
 import { bankPartIndices } from '../analysis/banksInServiceWords.js';
 import { meteredPhaseLoad, phaseTargetOf, planTargets, type ColumnPlan, type ColumnPlanOptions, type TargetResolver } from './columnPlan.js';
 import { ownEntry } from '../_internal/ownEntry.js';
+import { assertInstallationModel } from '../board/modelGuards.js';
 
 export interface InstallationColumnPlan extends ColumnPlan {
   /** Board number (0 = main, i + 1 = subBoards[i]) of each load in `board.loads`. */
@@ -156,6 +157,7 @@ function installationResolver(installation: Installation, groups: Readonly<Recor
  * @throws {InputError} naming each header cell that is wrong (unknown or ambiguous load, bad quantity), with its column.
  */
 export function planInstallationColumns(installation: Installation, header: readonly string[], options: ColumnPlanOptions = {}): InstallationColumnPlan {
+  assertInstallationModel(installation);
   const flat = flattenLoads(installation);
   const boards = [...flat.boards];
   const resolver = installationResolver(installation, options.groups ?? {}, boards);
