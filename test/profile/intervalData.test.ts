@@ -228,3 +228,17 @@ describe('interval-data years and zones', () => {
     expect(issuesOf(() => studyProfile(input, { timeZone: zone as string }))[0]!.path).toBe('timeZone');
   });
 });
+
+describe('interval-data numbers', () => {
+  it.each(['0x10', '0b11', '0o7', '1_000', 'Infinity', '.'])('"%s" is refused at its row and column, not read as a number', (cell) => {
+    const issues = issuesOf(() => read(['time', 'kiln [kW]'], [['2025-05-01 00:00', '1'], ['2025-05-01 00:01', cell]]));
+    expect(issues.map((i) => [i.code, i.path, i.received])).toEqual([['bad_value', 'row 3, column 2 ("kiln [kW]")', JSON.stringify(cell)]]);
+    expect(issues[0]!.expected).toMatch(/^a number written in decimal/);
+  });
+
+  it('decimal forms are read as written: " 2 ", "-.5", "+3", "1e3", "1."', () => {
+    const cells = [' 2 ', '-.5', '+3', '1e3', '1.'];
+    const { raw } = read(['time', 'kiln [kW]'], cells.map((c, k) => [`2025-05-01 00:0${k}`, c]));
+    expect(Array.from(raw.values[0]!.subarray(0, raw.count))).toEqual([2, -0.5, 3, 1000, 1]);
+  });
+});
