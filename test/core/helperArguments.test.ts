@@ -8,6 +8,7 @@ import {
   conductorResistance,
   InputError,
   judgeVoltage,
+  labelIn,
   powerFactorText,
   responseThresholdA,
   sequenceComponents,
@@ -82,6 +83,11 @@ describe('conductorResistance', () => {
     expect(conductorResistance({ mm2: 16 }, 'copper', 70)!.ohmPerKm).toBeCloseTo(1.15 * (1 + 0.00393 * 50), 12);
     expect(conductorResistance({ mm2: 17 }, 'copper')).toBeNull();
   });
+
+  it('a size named like an inherited key is no size of the tables (it read a function, and NaN Ω/km)', () => {
+    expect(conductorResistance({ awg: 'constructor' } as never, 'copper')).toBeNull();
+    expect(conductorResistance({ mm2: 'toString' } as never, 'aluminium')).toBeNull();
+  });
 });
 
 describe('unbalanceFactorFromLineMagnitudes', () => {
@@ -106,5 +112,12 @@ describe('responseThresholdA', () => {
 
   it('a 10 kvar three-phase step at 400 V on a 500/5 CT: 10 000 / (√3 × 400 × 100) = 0.1443 A', () => {
     expect(responseThresholdA(10, 'three-phase', 400, 100)).toBeCloseTo(10_000 / (Math.sqrt(3) * 400 * 100), 12);
+  });
+});
+
+describe('labelIn', () => {
+  it('spells known terms in L1/L2/L3 and leaves any other text as it is, an inherited key included', () => {
+    expect(labelIn('L1/L2/L3', 'A-N')).toBe('L1-N');
+    expect(labelIn('L1/L2/L3', 'constructor')).toBe('constructor');
   });
 });

@@ -24,6 +24,7 @@
  */
 import { PHYSICAL_RANGES, type CONDUIT_KINDS } from './boardRanges.js';
 import { argumentIssueError, checkNumberArgument } from '../_internal/argumentChecks.js';
+import { ownEntry } from '../_internal/ownEntry.js';
 
 export type ConductorMaterial = 'copper' | 'aluminium';
 
@@ -183,14 +184,14 @@ export function conductorResistance(size: ConductorSize, material: ConductorMate
   const { min, max } = PHYSICAL_RANGES.conductorTemperatureC;
   if (temperatureC !== undefined) checkNumberArgument(temperatureC, 'temperatureC', `a conductor temperature from ${min} to ${max} °C`, (t) => t >= min && t <= max);
   if ('mm2' in size) {
-    const value = IEC_60228_CLASS_2[material][String(size.mm2)];
+    const value = ownEntry(IEC_60228_CLASS_2[material], String(size.mm2));
     if (value === undefined) return null;
     const t = temperatureC ?? DEFAULT_CONDUCTOR_TEMPERATURE_C.metric;
     const factor = 1 + ALPHA_20[material] * (t - 20);
     return { ohmPerKm: value * factor, tableValue: value, tableUnit: 'ohm/km at 20 °C', table: 'IEC 60228 class 2', temperatureC: t, temperatureFactor: factor, label: `${size.mm2} mm²` };
   }
   const key = 'awg' in size ? size.awg : `${size.kcmil} kcmil`;
-  const value = NEC_TABLE_8[material][key];
+  const value = ownEntry(NEC_TABLE_8[material], key);
   if (value === undefined) return null;
   const t = temperatureC ?? DEFAULT_CONDUCTOR_TEMPERATURE_C.northAmerican;
   const factor = 1 + ALPHA_75[material] * (t - 75);
