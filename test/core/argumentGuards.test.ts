@@ -30,6 +30,8 @@ import {
   studyInstallationProfile,
   analyseHarmonics,
   boardPowerFactor,
+  buildBoardReport,
+  buildInstallationReport,
   renderCurrentTriangles,
   renderOneLineDiagram,
   renderPhasorDiagram,
@@ -210,6 +212,15 @@ describe('a result argument that is not a solved board or installation', () => {
     const { message, path } = refusal(call);
     expect(path).toBe(argument);
     expect(message).toBe(`${argument}: expected a solved board from solveBoard(...) or solveBoardModel(...)${argument === 'result' && message.includes('powerFactor') ? ', or its powerFactor' : ''} (received ${received})`);
+  });
+
+  it('buildBoardReport and buildInstallationReport name input.result when it is not solved', () => {
+    expect(refusal(() => buildBoardReport({ spec: parseBoard(rawBoard), result: board } as never)).message).toBe(
+      'input.result: expected a solved board from solveBoard(...) or solveBoardModel(...) (received a normalised board, not solved)',
+    );
+    expect(refusal(() => buildInstallationReport({ spec: parseInstallation(rawInstallation), result: solved } as never)).path).toBe('input.result');
+    expect(refusal(() => buildBoardReport({ spec: null, result: solved } as never)).path).toBe('input.spec');
+    expect(buildBoardReport({ spec: parseBoard(rawBoard), result: solved }).sections.length).toBeGreaterThan(0);
   });
 
   it('renderOneLineDiagram(a board result) names result', () => {
