@@ -29,6 +29,7 @@ import {
   studyInstallationScenarios,
   studyInstallationProfile,
   analyseHarmonics,
+  boardOfInstallation,
   boardPowerFactor,
   buildBoardReport,
   buildInstallationReport,
@@ -109,6 +110,14 @@ describe('an installation argument that is not a normalised installation', () =>
   it('a normalised installation still passes', () => {
     const { installation } = normaliseInstallation(parseInstallation(rawInstallation));
     expect(solveInstallationModel(installation).boards).toHaveLength(1);
+  });
+
+  it('boardOfInstallation names an index that is no board of it (it read past the list)', () => {
+    const { installation } = normaliseInstallation(parseInstallation(rawInstallation));
+    const { path, message } = refusal(() => boardOfInstallation(installation, 1));
+    expect(path).toBe('index');
+    expect(message).toBe('index: expected a board number from 0 (the main board) to 0 (received 1)');
+    expect(boardOfInstallation(installation, 0).name).toBe('m');
   });
 });
 
