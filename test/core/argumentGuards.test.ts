@@ -29,6 +29,18 @@ import {
   studyInstallationScenarios,
   studyInstallationProfile,
   analyseHarmonics,
+  boardOfInstallation,
+  boardPowerFactor,
+  buildBoardReport,
+  buildInstallationReport,
+  renderCurrentTriangles,
+  renderOneLineDiagram,
+  renderPhasorDiagram,
+  renderSequenceDiagram,
+  sizeDeltaBank,
+  sizeStarBank,
+  solveNetwork,
+  studyOpenNeutral,
 } from '@trivar/core';
 
 const rawBoard = {
@@ -66,6 +78,10 @@ describe('a board argument that is not a normalised board', () => {
     ['addHandCapacitors(undefined)', () => addHandCapacitors(undefined as never, { capacitors: [] })],
     ['studyScenarios(raw spec)', () => studyScenarios(rawBoard as never, {})],
     ['analyseHarmonics(raw spec)', () => analyseHarmonics(rawBoard as never, {} as never)],
+    ['studyOpenNeutral(raw 4-wire spec) (it used to say the board had no neutral)', () => studyOpenNeutral(rawBoard as never)],
+    ['sizeDeltaBank(raw spec)', () => sizeDeltaBank(rawBoard as never)],
+    ['sizeStarBank(raw spec)', () => sizeStarBank(rawBoard as never)],
+    ['solveNetwork(raw spec)', () => solveNetwork(rawBoard as never)],
   ])('%s: InputError naming "board"', (_, call) => {
     const { message, path, error } = refusal(call);
     expect(path).toBe('board');
@@ -94,6 +110,14 @@ describe('an installation argument that is not a normalised installation', () =>
   it('a normalised installation still passes', () => {
     const { installation } = normaliseInstallation(parseInstallation(rawInstallation));
     expect(solveInstallationModel(installation).boards).toHaveLength(1);
+  });
+
+  it('boardOfInstallation names an index that is no board of it (it read past the list)', () => {
+    const { installation } = normaliseInstallation(parseInstallation(rawInstallation));
+    const { path, message } = refusal(() => boardOfInstallation(installation, 1));
+    expect(path).toBe('index');
+    expect(message).toBe('index: expected a board number from 0 (the main board) to 0 (received 1)');
+    expect(boardOfInstallation(installation, 0).name).toBe('m');
   });
 });
 
@@ -181,5 +205,43 @@ describe('an installation profile input without a normalised installation', () =
     const { path, message } = refusal(() => studyInstallationProfile({ installation: rawInstallation } as never));
     expect(path).toBe('input.installation');
     expect(message).toMatch(/^input\.installation: expected an installation from normaliseInstallation/);
+  });
+});
+
+describe('a result argument that is not a solved board or installation', () => {
+  const solved = solveBoardModel(board);
+
+  it.each([
+    ['renderPhasorDiagram(raw spec)', () => renderPhasorDiagram(rawBoard as never), 'result', 'a spec with supply: ..., not solved'],
+    ['renderPhasorDiagram(result, { after: board })', () => renderPhasorDiagram(solved, { after: board as never }), 'options.after', 'a normalised board, not solved'],
+    ['renderSequenceDiagram(board)', () => renderSequenceDiagram(board as never), 'result', 'a normalised board, not solved'],
+    ['renderCurrentTriangles(result, null)', () => renderCurrentTriangles(solved, null as never), 'after', 'null'],
+    ['boardPowerFactor(raw spec) (it used to return undefined)', () => boardPowerFactor(rawBoard as never, 'vector'), 'result', 'a spec with supply: ..., not solved'],
+  ])('%s: InputError naming the argument', (_, call, argument, received) => {
+    const { message, path } = refusal(call);
+    expect(path).toBe(argument);
+    expect(message).toBe(`${argument}: expected a solved board from solveBoard(...) or solveBoardModel(...)${argument === 'result' && message.includes('powerFactor') ? ', or its powerFactor' : ''} (received ${received})`);
+  });
+
+  it('buildBoardReport and buildInstallationReport name input.result when it is not solved', () => {
+    expect(refusal(() => buildBoardReport({ spec: parseBoard(rawBoard), result: board } as never)).message).toBe(
+      'input.result: expected a solved board from solveBoard(...) or solveBoardModel(...) (received a normalised board, not solved)',
+    );
+    expect(refusal(() => buildInstallationReport({ spec: parseInstallation(rawInstallation), result: solved } as never)).path).toBe('input.result');
+    expect(refusal(() => buildBoardReport({ spec: null, result: solved } as never)).path).toBe('input.spec');
+    expect(buildBoardReport({ spec: parseBoard(rawBoard), result: solved }).sections.length).toBeGreaterThan(0);
+  });
+
+  it('renderOneLineDiagram(a board result) names result', () => {
+    const { message, path } = refusal(() => renderOneLineDiagram(solved as never));
+    expect(path).toBe('result');
+    expect(message).toBe('result: expected a solved installation from solveInstallation(...) or solveInstallationModel(...) (received an object)');
+  });
+
+  it('boardPowerFactor with no definition names it (it used to return undefined); with one it reads the result', () => {
+    const { message } = refusal(() => boardPowerFactor(solved, undefined as never));
+    expect(message).toBe('definition: expected one of "effective", "vector", "arithmetic", "positive-sequence" (received nothing)');
+    // One 5 kW load at pf 0.7 on a stiff supply: the board's vector PF is the load's.
+    expect(boardPowerFactor(solved, 'vector')).toBeCloseTo(0.7, 9);
   });
 });

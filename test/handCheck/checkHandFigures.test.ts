@@ -178,6 +178,9 @@ describe('bad hand figures', () => {
     // A gigavar printed 2.5 GA line currents: the physical ranges the board file has hold here too.
     ['a capacitor of 1e9 kvar', threeWire, { capacitors: [{ branch: 'A-B', kvar: 1e9 }] }, 'out_of_range', 'capacitors[0].kvar'],
     ['a capacitance of 1e12 µF', threeWire, { capacitors: [{ branch: 'A-B', uF: 1e12 }] }, 'out_of_range', 'capacitors[0].uF'],
+    // JSON.parse makes an own __proto__ key; it was reported by the keys of its value (expected.lines.currentA).
+    ['expected lines keyed __proto__', threeWire, { capacitors: [{ branch: 'A-B', kvar: 5 }], expected: { lines: JSON.parse('{"__proto__":{"currentA":3}}') } }, 'unknown_key', 'expected.lines.__proto__'],
+    ['expected lines keyed constructor', threeWire, { capacitors: [{ branch: 'A-B', kvar: 5 }], expected: { lines: { constructor: { currentA: 3 } } } }, 'unknown_key', 'expected.lines.constructor'],
   ])('%s', (_what, b, figures, code, path) => {
     try {
       checkHandFigures(b, figures);
@@ -185,6 +188,7 @@ describe('bad hand figures', () => {
     } catch (error) {
       const issues = (error as { issues: { code: string; path: string }[] }).issues;
       expect(issues).toContainEqual(expect.objectContaining({ code, path }));
+      expect(issues.every((i) => !i.path.endsWith('.currentA'))).toBe(true);
     }
   });
 });

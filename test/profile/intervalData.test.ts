@@ -14,6 +14,7 @@ import {
   parseBoard,
   planColumns,
   planDrivers,
+  studyProfile,
   type InputIssue,
 } from '@trivar/core';
 
@@ -192,5 +193,52 @@ describe('gaps and duplicates', () => {
     const { raw } = read(header, [rows[0]!, rows[3]!, rows[1]!]);
     const issues = issuesOf(() => checkIntervalSequence(raw));
     expect(issues.map((i) => [i.code, i.path])).toEqual([['out_of_order', 'row 4, column 1']]);
+  });
+});
+
+describe('interval-data years and zones', () => {
+  const header = ['time', 'kiln [kW]'];
+
+  it.each([
+    ['0050-06-01T00:00', '0050-06-01T00:15'],
+    ['0099-12-31T23:45', '0100-01-01T00:00'],
+    ['1899-12-31 23:45', '1899-12-31 23:50'],
+  ])('a year before 1900 (%s) is refused at its row, not read as 19xx', (first, second) => {
+    const issues = issuesOf(() => read(header, [[first, '1'], [second, '1']]));
+    expect(issues.map((i) => [i.code, i.path])).toEqual([
+      ['bad_time', 'row 2, column 1 ("time")'],
+      ['bad_time', 'row 3, column 1 ("time")'],
+    ]);
+    expect(issues[0]!.expected).toMatch(/^a date and time in 1900 or later/);
+  });
+
+  it('1900 itself is read as 1900', () => {
+    const { raw } = read(header, [['1900-01-01 00:00', '1'], ['1900-01-01 00:15', '1']]);
+    expect(new Date(raw.utcMs[0]!).toISOString()).toBe('1900-01-01T00:00:00.000Z');
+    expect(raw.utcMs[1]! - raw.utcMs[0]!).toBe(15 * 60_000);
+  });
+
+  it.each(['Mars/Olympus', 5])('a time zone the system does not know (%s): InputError at timeZone, from the reader and the study', (zone) => {
+    const plan = planColumns(board, header);
+    const [issue] = issuesOf(() => createRowReader(plan, { timeZone: zone as string }));
+    expect([issue!.code, issue!.path]).toEqual(['unknown_time_zone', 'timeZone']);
+    expect(issue!.message).toMatch(/^timeZone: expected an IANA time zone this system knows/);
+    const { raw } = read(header, [['2025-05-01 00:00', '1'], ['2025-05-01 00:15', '1']]);
+    const input = { board: plan.board, drivers: planDrivers(plan), columns: driverColumns(plan, raw.values, raw.count), utcMs: raw.utcMs.slice(0, raw.count), intervalMs: 15 * 60_000 };
+    expect(issuesOf(() => studyProfile(input, { timeZone: zone as string }))[0]!.path).toBe('timeZone');
+  });
+});
+
+describe('interval-data numbers', () => {
+  it.each(['0x10', '0b11', '0o7', '1_000', 'Infinity', '.'])('"%s" is refused at its row and column, not read as a number', (cell) => {
+    const issues = issuesOf(() => read(['time', 'kiln [kW]'], [['2025-05-01 00:00', '1'], ['2025-05-01 00:01', cell]]));
+    expect(issues.map((i) => [i.code, i.path, i.received])).toEqual([['bad_value', 'row 3, column 2 ("kiln [kW]")', JSON.stringify(cell)]]);
+    expect(issues[0]!.expected).toMatch(/^a number written in decimal/);
+  });
+
+  it('decimal forms are read as written: " 2 ", "-.5", "+3", "1e3", "1."', () => {
+    const cells = [' 2 ', '-.5', '+3', '1e3', '1.'];
+    const { raw } = read(['time', 'kiln [kW]'], cells.map((c, k) => [`2025-05-01 00:0${k}`, c]));
+    expect(Array.from(raw.values[0]!.subarray(0, raw.count))).toEqual([2, -0.5, 3, 1000, 1]);
   });
 });

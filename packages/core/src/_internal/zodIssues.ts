@@ -89,8 +89,17 @@ export function inputIssuesFromZod(issues: readonly core.$ZodIssue[], root: unkn
       const refused = issue.errors.find((branch) => branch.length > 0 && branch.every((i) => i.code === 'custom' && typeof i.params?.code === 'string'));
       if (refused) return inputIssuesFromZod(refused, valueAt(root, issue.path), path, parsedWith);
     }
-    if (issue.code === 'unrecognized_keys')
-      return issue.keys.map((key) => inputIssue('unknown_key', formatPath([...path, key]), unknownKeyExpected(key, path, parsedWith), key));
+    if (issue.code === 'unrecognized_keys') {
+      // Only the object's own keys: an own `__proto__` key (JSON.parse makes one) becomes the prototype of
+      // zod's copy, whose keys zod then lists as this object's (`lines: { __proto__: { currentA } }` was
+      // reported at `lines.currentA`); the key the file wrote is `__proto__`.
+      const object = valueAt(root, issue.path);
+      const own = (key: string) => typeof object !== 'object' || object === null || Object.hasOwn(object, key);
+      const keys = issue.keys.filter(own);
+      if (own('__proto__') && typeof object === 'object' && object !== null && !keys.includes('__proto__')) keys.push('__proto__');
+      // Never none: a parse that failed says why, even where the object read is not the one zod saw.
+      return (keys.length ? keys : issue.keys).map((key) => inputIssue('unknown_key', formatPath([...path, key]), unknownKeyExpected(key, path, parsedWith), key));
+    }
     // A refinement may report a value of its own in params.received (a spectrum's total, not the list).
     const received = issue.code === 'custom' && issue.params?.received !== undefined ? (issue.params.received as unknown) : valueAt(root, issue.path);
     // A refinement names its own code in params.code (`duplicate`, `not_integer`...).

@@ -2,6 +2,7 @@
 import type { Installation } from '../board/boardModel.js';
 import { ratedKvarInService } from '../network/installationModel.js';
 import type { BankInServiceReading } from './installationResult.js';
+import { assertInstallationModel } from '../board/modelGuards.js';
 
 /** The state assumed, in one clause: which banks, which steps. */
 export const BANKS_IN_SERVICE_BASIS = 'as the file lists them under harmonics.banks, every step on unless the entry’s stepsInService names the steps';
@@ -28,6 +29,7 @@ export type ListedBankInService = Omit<BankInServiceReading, 'deliveredKvar'>;
 
 /** The installation's banks in service, each named by its board, in the order the file lists them. */
 export function listedBanksInService(installation: Installation): ListedBankInService[] {
+  assertInstallationModel(installation);
   const names = [installation.main.name, ...installation.subBoards.map((b) => b.name)];
   return (installation.banksInService ?? []).map((record) => {
     const { boardIndex, loads: _parts, ...bank } = record;

@@ -15,6 +15,7 @@ import { abs, sub, type ComplexValue } from '../complex.js';
 import type { Board } from '../board/boardModel.js';
 import { solveNetwork, type NetworkSolution } from '../network/solveNetwork.js';
 import { neutralFaultNewton, withNeutralFault } from '../network/neutralFaultNewton.js';
+import { assertBoardModel } from '../board/modelGuards.js';
 
 export { withNeutralFault } from '../network/neutralFaultNewton.js';
 
@@ -101,6 +102,7 @@ function largestMove(a: readonly (ComplexValue | null)[], b: readonly (ComplexVa
  * @throws {NumericalError} when the intact board itself cannot be solved.
  */
 export function followNeutralBreak(board: Board, options: FollowNeutralBreakOptions = {}): NeutralBreakPath {
+  assertBoardModel(board);
   const lowVoltageThreshold = options.lowVoltageThreshold ?? 0.7;
   const stepNewton = { lowVoltageThreshold, maxIterations: ITERATIONS_PER_STEP, tolerance: STEP_TOLERANCE };
   const vBase = board.nominalLineToNeutralV;

@@ -24,6 +24,7 @@ import { labellerOf } from '../board/conventions/phaseNames.js';
 /** The cautions in the words of the board's region (see regionWords). */
 const openNeutralCautionsOf = (board: Board) => regionWords(conventionsOf(board).region, board.system).openNeutralCautions;
 import { OPEN_NEUTRAL_LIMITS, openNeutralFindings } from './openNeutralWording.js';
+import { assertBoardModel } from '../board/modelGuards.js';
 
 /** "No low-voltage rule": constant power held down to 5 % of nominal, low enough that no state this study reports gets there in practice. */
 const RULE_OFF_THRESHOLD = 0.05;
@@ -162,6 +163,7 @@ function openStates(open: Board, starts: readonly (NetworkSolution | null)[], th
 }
 
 export function studyOpenNeutral(board: Board, options?: SolveOptions): OpenNeutralStudy {
+  assertBoardModel(board);
   const notApplicable = (note: string): OpenNeutralStudy => ({
     applicable: false,
     note,

@@ -1,6 +1,7 @@
 /**
  * Voltage and current unbalance indices.
  */
+import { argumentIssueError, checkNumberArgument } from '../_internal/argumentChecks.js';
 
 /**
  * NEMA line-voltage unbalance rate (NEMA MG 1): the largest deviation of a
@@ -19,7 +20,15 @@ export function deviationFromAveragePercent(magnitudes: readonly number[]): numb
  * magnitudes alone (IEC 61000-4-30 form): β = ΣU⁴ / (ΣU²)²,
  * u2 = √[(1 − √(3 − 6β)) / (1 + √(3 − 6β))].
  */
-export function unbalanceFactorFromLineMagnitudes([uab, ubc, uca]: readonly [number, number, number]): number {
+export function unbalanceFactorFromLineMagnitudes(magnitudes: readonly [number, number, number]): number {
+  if (!Array.isArray(magnitudes) || magnitudes.length !== 3) throw argumentIssueError('magnitudes', 'three line-to-line voltage magnitudes [Uab, Ubc, Uca]', magnitudes);
+  magnitudes.forEach((u, k) => checkNumberArgument(u, `magnitudes[${k}]`, 'a line-to-line voltage magnitude, a finite number above 0', (x) => x > 0));
+  const [uab, ubc, uca] = magnitudes;
+  // Three line voltages add to zero, so their magnitudes close a triangle; equal to the other two's sum
+  // is the flat limit (|V2| = |V1|, 100 %). A little slack for magnitudes read off a solve.
+  const longest = Math.max(uab, ubc, uca);
+  if (longest > (uab + ubc + uca - longest) * (1 + 1e-9))
+    throw argumentIssueError('magnitudes', 'three magnitudes that can close a triangle (none longer than the other two together), as line-to-line voltages do', `[${uab}, ${ubc}, ${uca}]`);
   const s2 = uab ** 2 + ubc ** 2 + uca ** 2;
   const beta = (uab ** 4 + ubc ** 4 + uca ** 4) / (s2 * s2);
   // Clamps keep rounding on a balanced set (β = 1/3, root = 1) from producing √(negative).

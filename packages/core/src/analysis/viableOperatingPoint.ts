@@ -9,6 +9,7 @@ import { solveInstallationNetwork, type NetworkSolution } from '../network/solve
 import { installationOf } from '../network/installationModel.js';
 import { analyseSolution } from './analyseSolution.js';
 import type { OperatingPoint } from './boardResult.js';
+import { assertBoardModel } from '../board/modelGuards.js';
 
 /** The error for a solved board whose operating point is a collapse (reason `collapsed`). */
 export function collapseError(result: { readonly operatingPoint: Pick<OperatingPoint, 'findings'> }): NumericalError {
@@ -21,6 +22,7 @@ export function collapseError(result: { readonly operatingPoint: Pick<OperatingP
  * @throws {NumericalError} reason `collapsed`, or as `solveNetwork` throws
  */
 export function assertViableBoard(board: Board): void {
+  assertBoardModel(board);
   // A comparison asks once for the study and once per arrangement; a board is an immutable value.
   if (viableBoards.has(board)) return;
   const { installation } = installationOf(board);

@@ -22,7 +22,9 @@
  * conductor says so, 60 Hz; mm² sizes 0.08 Ω/km at 50 Hz, typical of multicore LV cable. Both
  * scale with the supply frequency.
  */
-import type { CONDUIT_KINDS } from './boardRanges.js';
+import { PHYSICAL_RANGES, type CONDUIT_KINDS } from './boardRanges.js';
+import { argumentIssueError, checkNumberArgument } from '../_internal/argumentChecks.js';
+import { ownEntry } from '../_internal/ownEntry.js';
 
 export type ConductorMaterial = 'copper' | 'aluminium';
 
@@ -176,15 +178,20 @@ function gaugeOrder(key: string): number {
 
 /** Resistance of one conductor at `temperatureC`, or null when the size is not in the table. */
 export function conductorResistance(size: ConductorSize, material: ConductorMaterial, temperatureC?: number): ConductorResistance | null {
+  if (typeof size !== 'object' || size === null || !('mm2' in size || 'awg' in size || 'kcmil' in size)) throw argumentIssueError('size', 'a conductor size { mm2 }, { awg } or { kcmil }', size);
+  if (material !== 'copper' && material !== 'aluminium') throw argumentIssueError('material', '"copper" or "aluminium"', material);
+  // The board file's range: the linear temperature law holds there (it would reach zero resistance near −235 °C).
+  const { min, max } = PHYSICAL_RANGES.conductorTemperatureC;
+  if (temperatureC !== undefined) checkNumberArgument(temperatureC, 'temperatureC', `a conductor temperature from ${min} to ${max} °C`, (t) => t >= min && t <= max);
   if ('mm2' in size) {
-    const value = IEC_60228_CLASS_2[material][String(size.mm2)];
+    const value = ownEntry(IEC_60228_CLASS_2[material], String(size.mm2));
     if (value === undefined) return null;
     const t = temperatureC ?? DEFAULT_CONDUCTOR_TEMPERATURE_C.metric;
     const factor = 1 + ALPHA_20[material] * (t - 20);
     return { ohmPerKm: value * factor, tableValue: value, tableUnit: 'ohm/km at 20 °C', table: 'IEC 60228 class 2', temperatureC: t, temperatureFactor: factor, label: `${size.mm2} mm²` };
   }
   const key = 'awg' in size ? size.awg : `${size.kcmil} kcmil`;
-  const value = NEC_TABLE_8[material][key];
+  const value = ownEntry(NEC_TABLE_8[material], key);
   if (value === undefined) return null;
   const t = temperatureC ?? DEFAULT_CONDUCTOR_TEMPERATURE_C.northAmerican;
   const factor = 1 + ALPHA_75[material] * (t - 75);

@@ -11,7 +11,7 @@ import type { Board, Installation } from './boardModel.js';
 const BOARD_EXPECTED = 'a board from normaliseBoard(parseBoard(...)), not the spec itself';
 const INSTALLATION_EXPECTED = 'an installation from normaliseInstallation(parseInstallation(...)).installation, not the spec itself';
 
-const isObject = (v: unknown): v is Record<string, unknown> => typeof v === 'object' && v !== null && !Array.isArray(v);
+export const isObject = (v: unknown): v is Record<string, unknown> => typeof v === 'object' && v !== null && !Array.isArray(v);
 
 /** The fields every study reads first: enough to tell a normalised board from a spec or anything else. */
 export function isBoardModel(value: unknown): value is Board {
@@ -32,9 +32,14 @@ export function isInstallationModel(value: unknown): value is Installation {
 }
 
 /** The argument's problem as one issue: "board: expected a board from … (received an object)". */
-function argumentError(argument: string, expected: string, value: unknown, heading: string): InputError {
+export function argumentError(argument: string, expected: string, value: unknown, heading: string, wanted: 'normalised' | 'solved' = 'normalised'): InputError {
   // A spec (what parseBoard returns, or a file's data) is the likeliest mistake: say so.
-  const received = isObject(value) && 'supply' in value ? 'a spec with supply: ..., not normalised' : describeValue(value);
+  const received =
+    isObject(value) && 'supply' in value
+      ? `a spec with supply: ..., not ${wanted}`
+      : wanted === 'solved' && isBoardModel(value)
+        ? 'a normalised board, not solved'
+        : describeValue(value);
   return new InputError([{ code: 'invalid_type', path: argument, expected, received, message: `${argument}: expected ${expected} (received ${received})` }], heading);
 }
 

@@ -11,6 +11,7 @@
 import { CORRECTION_DEFAULTS } from './correctionDefaults.js';
 import type { BankStep, ControllerSettings } from './correctionResult.js';
 import type { ControllerSpec, Practice } from './correctionSpec.js';
+import { argumentIssueError, checkNumberArgument } from '../_internal/argumentChecks.js';
 
 /** IEC 61869-2 preferred CT primary ratings: 10, 12.5, 15, 20, 25, 30, 40, 50, 60, 75 A and their decimal multiples (from memory). */
 const CT_SERIES = [10, 12.5, 15, 20, 25, 30, 40, 50, 60, 75];
@@ -28,6 +29,10 @@ export function standardCtPrimaryA(amps: number): number {
  * @param voltageV U_LL for a three-phase step, the voltage across the step for a single-phase one
  */
 export function responseThresholdA(kvarAtNominalV: number, kind: 'three-phase' | 'single-phase', voltageV: number, ctRatio: number): number {
+  checkNumberArgument(kvarAtNominalV, 'kvarAtNominalV', "a step's output in kvar, a finite number above 0", (x) => x > 0);
+  if (kind !== 'three-phase' && kind !== 'single-phase') throw argumentIssueError('kind', '"three-phase" or "single-phase"', kind);
+  checkNumberArgument(voltageV, 'voltageV', 'a voltage in V, a finite number above 0', (x) => x > 0);
+  checkNumberArgument(ctRatio, 'ctRatio', 'the CT ratio (primary A / secondary A), a finite number above 0', (x) => x > 0);
   const q = kvarAtNominalV * 1000;
   return kind === 'three-phase' ? q / (Math.sqrt(3) * voltageV * ctRatio) : q / (voltageV * ctRatio);
 }

@@ -88,6 +88,7 @@ const names = (installation: Installation) => [installation.main.name, ...instal
  * @throws {InputError} code `unknown_board` naming the option and every board of the installation
  */
 export function installationBoardIndex(installation: Installation, name: string | undefined, option = 'board'): number {
+  assertInstallationModel(installation);
   if (name === undefined) return 0;
   const all = names(installation);
   const index = all.indexOf(name);

@@ -17,9 +17,12 @@ import type { Board, PhaseId } from '../board/boardModel.js';
 import type { BoardResult, PowerFactorSense } from '../analysis/boardResult.js';
 import type { TargetReadings } from '../analysis/analyseSolution.js';
 import type { Arrangement, TargetDefinition, TargetSpec } from './correctionSpec.js';
+import { TARGET_DEFINITIONS } from './correctionSpec.js';
 import { CORRECTION_DEFAULTS } from './correctionDefaults.js';
+import { InputError, inputIssue } from '../errors.js';
 import { meteredStatement, PER_LINE_STATEMENTS, SINGLE_LINE_STATEMENT, TARGET_STATEMENTS, targetShortfall } from './correctionWording.js';
 import { labellerOf } from '../board/conventions/phaseNames.js';
+import { argumentError, assertBoardModel, isObject } from '../board/modelGuards.js';
 
 export type BoardTargetDefinition = Exclude<TargetDefinition, 'per-line'>;
 
@@ -57,6 +60,7 @@ const tanOfPf = (pf: number): number => Math.sqrt(Math.max(0, 1 - pf * pf)) / pf
  * @example resolveTarget({ pf: 0.9 }, board).definition //=> 'per-line'
  */
 export function resolveTarget(spec: TargetSpec | undefined, board: Board, arrangement: Arrangement = 'star-bank'): ResolvedTarget {
+  assertBoardModel(board);
   const compensator = arrangement === 'balancing-compensator';
   const definition: TargetDefinition = spec?.definition ?? (compensator ? CORRECTION_DEFAULTS.compensatorDefinition : CORRECTION_DEFAULTS.definition);
   const pf = spec?.pf ?? CORRECTION_DEFAULTS.pf;
@@ -106,6 +110,8 @@ export function lineTanBounds(target: ResolvedTarget, lineIndex: number): { high
 
 /** The board-wide PF by a named definition (signed like P), or null where that definition does not exist. */
 export function boardPowerFactor(result: Pick<BoardResult, 'powerFactor'>, definition: BoardTargetDefinition): number | null {
+  if (!isObject(result) || !isObject(result.powerFactor) || !isObject(result.powerFactor.vector))
+    throw argumentError('result', 'a solved board from solveBoard(...) or solveBoardModel(...), or its powerFactor', result, 'the result argument is not a solved board', 'solved');
   const pf = result.powerFactor;
   switch (definition) {
     case 'effective':
@@ -117,6 +123,10 @@ export function boardPowerFactor(result: Pick<BoardResult, 'powerFactor'>, defin
     case 'positive-sequence':
       return pf.positiveSequence?.pf ?? null;
   }
+  throw new InputError(
+    [inputIssue('invalid_value', 'definition', `one of ${TARGET_DEFINITIONS.filter((d) => d !== 'per-line').map((d) => `"${d}"`).join(', ')}`, definition)],
+    'the definition argument is not a power-factor definition',
+  );
 }
 
 export interface LineTargetCheck {

@@ -7,6 +7,7 @@
 import type { Board, BoardLoad, PhaseId, Terminal } from '../board/boardModel.js';
 import type { ConnectionSpec } from '../board/boardSchema.js';
 import { labelIn, type PhaseNaming } from '../board/conventions/phaseNames.js';
+import { assertBoardModel } from '../board/modelGuards.js';
 
 /** Where a branch ends: a phase, the neutral bar, or the bank's own floating star point. */
 export type EquipmentTerminal = PhaseId | 'N' | 'star';
@@ -125,6 +126,7 @@ export interface AddEquipmentOptions {
  * corrected.loads.at(-1)?.origin //=> 'added'
  */
 export function addCorrectionEquipment(board: Board, groups: readonly EquipmentGroup[], options: AddEquipmentOptions = {}): Board {
+  assertBoardModel(board);
   const state = options.state ?? 'design';
   const factor = options.capacitanceFactor ?? 1;
   const added = groups.map((group, g): BoardLoad => {

@@ -17,6 +17,7 @@ import { judgeVoltage } from '../board/conventions/voltageLimits.js';
 import { balanceWorsening } from './balanceWorsening.js';
 import { overloadsCaused } from './overloadsCaused.js';
 import { warningText } from './correctionWording.js';
+import { assertBoardModel } from '../board/modelGuards.js';
 
 /** One line at a board's incomer, before and after. */
 export interface IncomerLineEffect {
@@ -217,6 +218,7 @@ function otherBoardWarnings(before: InstallationResult, after: InstallationResul
  * effect.boards[0].vectorPf //=> { before: 0.93…, after: 0.96…, change: 0.03… } at the main incomer
  */
 export function installationEffect(board: Board, equipment: readonly EquipmentGroup[], solve: SolveOptions = {}): InstallationEffect {
+  assertBoardModel(board);
   const analyse = (b: Board) => analyseInstallation(solveInstallationNetwork(installationOf(b).installation, solve), { ...solve, openNeutral: false });
   const before = analyse(board);
   const after = analyse(addCorrectionEquipment(board, equipment));

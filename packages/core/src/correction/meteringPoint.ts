@@ -19,6 +19,7 @@ import { ZERO } from '../complex.js';
 import { inputIssue, type InputIssue } from '../errors.js';
 import { boardOfInstallation, installationOf } from '../network/installationModel.js';
 import { solveInstallationNetwork, type NetworkSolution, type SolveOptions } from '../network/solveNetwork.js';
+import { assertBoardModel } from '../board/modelGuards.js';
 
 /** The word for the origin of the installation in `target.measuredAt`. */
 export const ORIGIN_POINT = 'origin';
@@ -69,6 +70,7 @@ const boardName = (installation: Installation, index: number) => (index === 0 ? 
 
 /** What `target.measuredAt` accepts for equipment on `board`: the origin, the board itself and every board it is fed through. */
 export function meteringPoints(board: Board): string[] {
+  assertBoardModel(board);
   const { installation, boardIndex } = installationOf(board);
   return [ORIGIN_POINT, ...pathToSupply(installation, boardIndex).map((b) => boardName(installation, b))];
 }
@@ -78,6 +80,7 @@ export function meteringPoints(board: Board): string[] {
  * @param path the field or option that named it, for the issue (`target.measuredAt`, `--measured-at`)
  */
 export function meteringPointIssues(board: Board, point: string | undefined, path = 'target.measuredAt'): InputIssue[] {
+  assertBoardModel(board);
   if (point === undefined) return [];
   const known = installationOf(board).installation;
   const all = [known.main.name, ...known.subBoards.map((b) => b.name)];

@@ -8,6 +8,7 @@
 import type { Board, BoardLoad, Installation } from '../board/boardModel.js';
 import { scale } from '../complex.js';
 import type { LightLoadSpec } from './correctionSpec.js';
+import { assertBoardModel } from '../board/modelGuards.js';
 
 function scaleLoads(loads: readonly BoardLoad[], lightLoad: LightLoadSpec): BoardLoad[] {
   return loads.map((load) => {
@@ -40,6 +41,7 @@ function boardsBelow(installation: Installation, root: number): Set<number> {
  * scaleBoardLoads(board, { fraction: 0.3, perLoad: { oven: 0 } }) // 30 % of every load, oven off
  */
 export function scaleBoardLoads(board: Board, lightLoad: LightLoadSpec): Board {
+  assertBoardModel(board);
   const loads = scaleLoads(board.loads, lightLoad);
   const place = board.installation;
   if (!place) return { ...board, loads };

@@ -26,6 +26,7 @@ import { solveIdealCompensator } from './_internal/idealCompensator.js';
 import { solveCapacitorOnlyCompensator } from './_internal/capacitorOnlyCompensator.js';
 import { fewerCapacitorBranches } from './_internal/fewerCapacitorBranches.js';
 import { leaveOutNegligible } from './_internal/negligibleBranches.js';
+import { assertBoardModel } from '../board/modelGuards.js';
 
 export interface CompensatorOptions {
   /**
@@ -122,6 +123,7 @@ export interface CompensatorUse {
 }
 
 export function sizeBalancingCompensator(board: Board, options?: CompensatorOptions, use: CompensatorUse = {}): CompensatorSizing {
+  assertBoardModel(board);
   const opts = resolveCompensatorOptions(board, options);
   const { target } = opts;
   const slots = [...deltaSlots(board), ...(opts.branches === 'delta-and-star' ? starSlots(board, 'neutral') : [])];

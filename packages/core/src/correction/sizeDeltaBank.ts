@@ -15,6 +15,7 @@ import type { BankSizing } from './correctionResult.js';
 import { checkRules, definedOnly, maxIterationsSchema, solveOptionsSchema } from './_internal/optionSchemas.js';
 import { parseOptions } from '../_internal/zodIssues.js';
 import { sizeBank, type ResolvedBankOptions } from './_internal/sizeBank.js';
+import { assertBoardModel } from '../board/modelGuards.js';
 
 export interface DeltaBankOptions {
   /**
@@ -68,6 +69,7 @@ function resolveDeltaBankOptions(board: Board, input: DeltaBankOptions | undefin
  * //=> [12.64…, 12.64…, 12.64…]
  */
 export function sizeDeltaBank(board: Board, options?: DeltaBankOptions, use: Pick<ResolvedBankOptions, 'limitsOnly' | 'capacitanceTolerance'> = {}): BankSizing {
+  assertBoardModel(board);
   const resolved = resolveDeltaBankOptions(board, options);
   return sizeBank(board, 'delta-bank', deltaSlots(board), { ...resolved, ...use });
 }

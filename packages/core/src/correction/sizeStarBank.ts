@@ -13,6 +13,7 @@ import type { BankSizing } from './correctionResult.js';
 import { checkRules, definedOnly, maxIterationsSchema, solveOptionsSchema } from './_internal/optionSchemas.js';
 import { parseOptions } from '../_internal/zodIssues.js';
 import { sizeBank, type ResolvedBankOptions } from './_internal/sizeBank.js';
+import { assertBoardModel } from '../board/modelGuards.js';
 
 export interface StarBankOptions {
   /**
@@ -76,6 +77,7 @@ function resolveStarBankOptions(board: Board, input: StarBankOptions | undefined
  * //=> 12.64… (= 30 × (tan acos 0.8 − tan acos 0.95))
  */
 export function sizeStarBank(board: Board, options?: StarBankOptions, use: Pick<ResolvedBankOptions, 'limitsOnly' | 'capacitanceTolerance'> = {}): BankSizing {
+  assertBoardModel(board);
   const resolved = resolveStarBankOptions(board, options);
   return sizeBank(board, 'star-bank', starSlots(board, resolved.starPoint), { ...resolved, ...use });
 }

@@ -11,6 +11,7 @@ import { allInputIssues } from '../_internal/zodIssues.js';
 import { ONE_SHOT_PARSE } from '../_internal/oneShotParse.js';
 import { conventionsOf } from '../board/conventions/boardConventions.js';
 import { inFileNaming } from '../board/conventions/issueNaming.js';
+import { assertBoardModel } from '../board/modelGuards.js';
 
 export type CorrectionSpecValidation = { ok: true; spec: CorrectionSpec } | { ok: false; issues: InputIssue[] };
 
@@ -19,6 +20,7 @@ export type CorrectionSpecValidation = { ok: true; spec: CorrectionSpec } | { ok
  * @returns `{ ok: true, spec }` or `{ ok: false, issues }` with every problem and its field path.
  */
 export function validateCorrectionSpec(input: unknown, board: Board): CorrectionSpecValidation {
+  assertBoardModel(board);
   const parsed = correctionSpecSchema.safeParse(input, ONE_SHOT_PARSE);
   // A non-object is the `spec` argument's problem, not the board's.
   const shapeIssues = namingArgument(allInputIssues(parsed.success ? [] : parsed.error.issues, input, correctionSpecSchema), 'spec');
@@ -37,6 +39,7 @@ export function validateCorrectionSpec(input: unknown, board: Board): Correction
  * //=> throws InputError: "target.pf: expected a number <= 1 (received 1.2)"
  */
 export function parseCorrectionSpec(input: unknown, board: Board): CorrectionSpec {
+  assertBoardModel(board);
   const result = validateCorrectionSpec(input, board);
   if (!result.ok) throw new InputError(result.issues, 'the correction settings are not valid');
   return result.spec;

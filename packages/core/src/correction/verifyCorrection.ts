@@ -26,6 +26,7 @@ import { checkRules, definedOnly, solveOptionsSchema } from './_internal/optionS
 import { parseOptions } from '../_internal/zodIssues.js';
 import { balanceWorsening } from './balanceWorsening.js';
 import { overloadsCaused } from './overloadsCaused.js';
+import { assertBoardModel } from '../board/modelGuards.js';
 
 export interface VerifyCorrectionOptions {
   /** The equipment to add, e.g. `selection.equipment` or `sizing.equipment`. */
@@ -129,6 +130,7 @@ function equipmentValueSolver(corrected: Board, baseLoads: number, options: Solv
 
 
 export function verifyCorrection(board: Board, options: VerifyCorrectionOptions): CorrectionVerification {
+  assertBoardModel(board);
   const opts = parseOptions(verifyOptionsSchema, options, 'verifyCorrection options');
   const arrangement = opts.arrangement ?? 'star-bank';
   checkRules(definedOnly({ arrangement, target: opts.target, lightLoad: opts.lightLoad }), board, 'verifyCorrection options');

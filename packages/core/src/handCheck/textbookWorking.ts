@@ -10,6 +10,7 @@ import { abs, add, conj, degToRad, div, polar, type ComplexValue } from '../comp
 import { balancedAnglesDeg } from '../board/normaliseBoard.js';
 import type { PowerFactorSense } from '../analysis/boardResult.js';
 import type { HandCapacitor, TextbookPhase } from './handCheckResult.js';
+import { assertBoardModel } from '../board/modelGuards.js';
 
 const isPhase = (t: string, board: Board): t is PhaseId => board.phases.includes(t as PhaseId);
 
@@ -63,6 +64,7 @@ export interface TextbookFigures {
 }
 
 export function textbookWorking(board: Board, capacitors: readonly Pick<HandCapacitor, 'branch' | 'handKvar'>[], targetPf: number | null): TextbookFigures {
+  assertBoardModel(board);
   const powers = perPhasePowers(board);
   const caps = perPhaseCapacitorKvar(board, capacitors);
   const volts = nominalPhaseVoltages(board);

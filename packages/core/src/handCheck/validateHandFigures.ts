@@ -8,6 +8,7 @@ import { inFileNaming } from '../board/conventions/issueNaming.js';
 import { labellerOf, type PhaseNaming } from '../board/conventions/phaseNames.js';
 import { conventionsOf } from '../board/conventions/boardConventions.js';
 import { ONE_SHOT_PARSE } from '../_internal/oneShotParse.js';
+import { assertBoardModel } from '../board/modelGuards.js';
 
 type Obj = Record<string, unknown>;
 const isObj = (x: unknown): x is Obj => typeof x === 'object' && x !== null && !Array.isArray(x);
@@ -56,6 +57,7 @@ function boardRules(spec: HandFiguresSpec, board: Board): InputIssue[] {
  * @throws {InputError} listing every problem with its field path (`capacitors[1].kvar`)
  */
 export function parseHandFigures(input: unknown, board: Board): HandFiguresSpec {
+  assertBoardModel(board);
   const spelt = readFigureSpellings(input);
   const parsed = handFiguresSchema.safeParse(spelt.input, ONE_SHOT_PARSE);
   const issues = namingArgument([...spelt.issues, ...(parsed.success ? boardRules(parsed.data, board) : inputIssuesFromZod(parsed.error.issues, spelt.input, [], { schema: handFiguresSchema, input: spelt.input }))], 'figures');

@@ -13,6 +13,7 @@ import { InputError, inputIssue, type InputIssue } from '../errors.js';
 import { boardOfInstallation, withBoardLoads } from '../network/installationModel.js';
 import { addInstalledBank, installedBankLayout } from './harmonicModel.js';
 import type { InstallationBankSpec } from './harmonicsSpec.js';
+import { assertInstallationModel } from '../board/modelGuards.js';
 
 const boardNames = (installation: Installation) => [installation.main.name, ...installation.subBoards.map((sb) => sb.name)];
 
@@ -60,6 +61,7 @@ export const stepsInServiceOf = (bank: InstallationBankSpec): number[] => bank.s
  * inService.banksInService?.[0].loads //=> the bank's parts among its board's loads
  */
 export function withBanksInService(installation: Installation, banks: readonly InstallationBankSpec[] | undefined): Installation {
+  assertInstallationModel(installation);
   if (installation.banksInService || !banks?.length) return installation;
   const boards = bankBoardsOf(banks, installation);
   let result = installation;

@@ -24,6 +24,7 @@ import { withBanksInService } from './banksInService.js';
 import type { BoardScan, InstallationHarmonicsReport } from './harmonicsResult.js';
 import { dutyRatio } from './capacitorDuty.js';
 import { conditionWords } from './dutyConditions.js';
+import { assertInstallationModel } from '../board/modelGuards.js';
 
 /** What the check on an installation adds to the basis. */
 const WORDING = {
@@ -124,6 +125,7 @@ export function installationBankChecker(spec: HarmonicsInstallationSpec, boardIn
  * @throws {InputError} for an unknown board, a study that does not fit the board, or a `harmonics.banks` entry that does not fit
  */
 export function correctInstallationWithHarmonics(spec: HarmonicsInstallationSpec, installation: Installation, study: unknown, options?: CorrectInstallationOptions): InstallationHarmonicCorrection {
+  assertInstallationModel(installation);
   // The harmonics section is checked before the study runs (its banks' boards, one per board).
   resolveInstallationHarmonics(spec);
   // The fundamental study sees what the harmonic check sees: the other boards' banks in service.
@@ -138,6 +140,7 @@ export function correctInstallationWithHarmonics(spec: HarmonicsInstallationSpec
  * bank checked with its detuned variants (as `compareWithHarmonics`), the recommended one's effect on every board.
  */
 export function compareInstallationWithHarmonics(spec: HarmonicsInstallationSpec, installation: Installation, study: unknown, options?: CorrectInstallationOptions): InstallationHarmonicComparison {
+  assertInstallationModel(installation);
   resolveInstallationHarmonics(spec);
   const { board, placed } = placeCorrection(withBanksInService(installation, spec.harmonics?.banks), options);
   let without: ResonanceWithoutBank | null = null;

@@ -32,6 +32,7 @@ import { analyseHarmonics } from './studyHarmonics.js';
 import { DETUNING_FACTORS_PERCENT, capacitorVoltage, tuningOrder } from './detuning.js';
 import { dutyRatio } from './capacitorDuty.js';
 import type { CapacitorDuty, HarmonicsReport } from './harmonicsResult.js';
+import { assertBoardModel } from '../board/modelGuards.js';
 
 const capitalised = (text: string) => text.charAt(0).toUpperCase() + text.slice(1);
 
@@ -210,6 +211,7 @@ function asDetuned(report: CorrectionReport, p: number, percent: number, plainSe
  * fundamental susceptance. Star branches of a floating bank share one star point.
  */
 export function bankOfReport(board: Board, report: CorrectionReport): { board: Board; model: BankModel } | null {
+  assertBoardModel(board);
   const steps = report.selection?.steps ?? [];
   if (steps.length === 0) return null;
   const omega = 2 * Math.PI * board.frequencyHz;
@@ -350,6 +352,7 @@ export interface HarmonicCheckWording {
  * @param studied `correctBoard(board, study)` where the caller has it (a comparison made it), not made again
  */
 export function correctWithHarmonics(spec: HarmonicsBoardSpec, board: Board, study: unknown, studied?: CorrectionReport): HarmonicCorrectionReport {
+  assertBoardModel(board);
   const checked = correctWithBankCheck(board, study, spec.harmonics?.detuning, boardBankChecker(spec, board), { file: 'board file' }, studied);
   const fileBank = spec.harmonics?.bank;
   if (!fileBank || !checked.selection?.units) return checked;
@@ -463,6 +466,7 @@ export type HarmonicComparison = CorrectionComparison & {
  * chosen variant passes, on the figures of those variants as shown.
  */
 export function compareWithHarmonics(spec: HarmonicsBoardSpec, board: Board, study: unknown): HarmonicComparison {
+  assertBoardModel(board);
   return compareWithBankCheck(board, study, (arrangementStudy, studied) => correctWithHarmonics(spec, board, arrangementStudy, studied));
 }
 

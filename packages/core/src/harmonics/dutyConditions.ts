@@ -9,6 +9,7 @@
 import type { Board, BoardLoad, Installation } from '../board/boardModel.js';
 import type { CapacitanceTolerance, DutyCondition } from './harmonicsResult.js';
 import type { HarmonicModel, LoadBehaviour } from './harmonicModel.js';
+import { assertBoardModel, assertInstallationModel } from '../board/modelGuards.js';
 
 /**
  * Nominal with the loads as given first (ties keep the plain case), then the tolerance ends, then
@@ -22,6 +23,7 @@ export function dutyConditions(tolerance: CapacitanceTolerance, otherBanks = fal
 
 /** Every load of the board off (what a study added, such as the bank, stays), as `withSteps` switches a step off. */
 export function withLoadsOff(board: Board): Board {
+  assertBoardModel(board);
   return { ...board, loads: loadsOff(board.loads) };
 }
 
@@ -32,6 +34,7 @@ export function withInstallationLoadsOff(installation: Installation): Installati
 
 /** Every bank part of the boards other than `b` off (`banks`: per board, its bank's load numbers). */
 export function withOtherBanksOff(installation: Installation, banks: readonly (readonly number[])[], b: number): Installation {
+  assertInstallationModel(installation);
   return withPartsOff(installation, banks.map((parts, c) => (c === b ? [] : parts)));
 }
 
@@ -53,6 +56,7 @@ const loadsOff = (loads: readonly BoardLoad[]): BoardLoad[] =>
  * effective susceptance B_C/(1 − p) becomes B_C·factor/(1 − p·factor).
  */
 export function withCapacitanceFactor(board: Board, model: HarmonicModel, factor: number): { board: Board; model: HarmonicModel } {
+  assertBoardModel(board);
   const bank = model.bank;
   if (!bank || factor === 1) return { board, model };
   const p = bank.detuning;

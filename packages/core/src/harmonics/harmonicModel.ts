@@ -13,6 +13,7 @@ import { CORRECTION_DEFAULTS } from '../correction/correctionDefaults.js';
 import type { CapacitanceTolerance } from './harmonicsResult.js';
 import type { HarmonicLoadSpec, HarmonicsBoardSpec, HarmonicsSectionSpec, InstalledBankSpec, LinearForm, SpectrumSpec } from './harmonicsSpec.js';
 import { TYPICAL_SPECTRA } from './typicalSpectra.js';
+import { assertBoardModel } from '../board/modelGuards.js';
 
 /** One order of a spectrum: magnitude as a fraction of the fundamental, angle relative to h × the fundamental angle. */
 export interface OrderContent {
@@ -118,6 +119,7 @@ export function installedBankLayout(board: Pick<Board, 'system' | 'phases' | 'ha
  * @throws {InputError} at `bank.connection` for a bank the board's system cannot take (the studies check the file's field first)
  */
 export function addInstalledBank(board: Board, bank: InstalledBankSpec): { board: Board; model: BankModel } {
+  assertBoardModel(board);
   const layout = installedBankLayout(board, bank.connection);
   if (!layout.ok) throw new InputError([inputIssue('not_applicable', 'bank.connection', layout.expected, bank.connection)], `addInstalledBank: the bank does not fit a ${board.system} board`);
   const p = (bank.detuningPercent ?? 0) / 100;
@@ -152,6 +154,7 @@ export function addInstalledBank(board: Board, bank: InstalledBankSpec): { board
  * `spec`, the bank already added when there is one) and the study settings.
  */
 export function resolveHarmonicModel(spec: Pick<HarmonicsBoardSpec, 'loads' | 'harmonics'>, board: Board, bank: BankModel | null): HarmonicModel {
+  assertBoardModel(board);
   const section: HarmonicsSectionSpec = spec.harmonics ?? {};
   const defaultForm = section.linearForm ?? HARMONICS_DEFAULTS.linearForm;
   const bankLoads = new Set(bank ? [...(bank.fixedLoad === null ? [] : [bank.fixedLoad]), ...bank.stepLoads] : []);
@@ -188,6 +191,7 @@ export function ordersPresent(model: HarmonicModel): number[] {
  * localeCompare (a collator per call) cost a correction with harmonic data some 60 ms.
  */
 export function stateKey(board: Board, bank: BankModel, steps: readonly boolean[]): string {
+  assertBoardModel(board);
   const on = new Map<string, number>();
   const parts = [...(bank.fixedLoad === null ? [] : [bank.fixedLoad]), ...bank.stepLoads.filter((_, k) => steps[k])];
   for (const l of parts)

@@ -13,9 +13,11 @@ import { solveWrittenInstallation, type PerBoardBranches } from '../network/solv
 import { injectBranchSource, type FixedSolveOptions } from '../network/solveFixedNetwork.js';
 import type { HarmonicModel } from './harmonicModel.js';
 import { boardAtOrder, branchAdmittanceAtOrderInto, contentAtOrder, impedanceAtOrder, injectionAtOrder } from './networkAtOrder.js';
+import { assertInstallationModel } from '../board/modelGuards.js';
 
 /** The installation with its supply and every feeder at order h (`models`: one per board, 0 = main). */
 export function installationAtOrder(installation: Installation, models: readonly HarmonicModel[], h: number): Installation {
+  assertInstallationModel(installation);
   const resistance = models[0]!.resistance;
   const atOrder = (z: Parameters<typeof impedanceAtOrder>[0]) => impedanceAtOrder(z, h, resistance);
   return {

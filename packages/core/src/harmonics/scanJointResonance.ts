@@ -23,6 +23,7 @@ import type { JointPeak, JointScan, JointScanCombination, OtherBankLevel, Resona
 import { bankKvarOn, combinationLabel, refinedPeaks, stepCombinations } from './scanResonance.js';
 import type { BankState, ScanEvaluator } from './scanEvaluator.js';
 import { bankStateWords } from './harmonicsWording.js';
+import { assertBoardModel } from '../board/modelGuards.js';
 
 /** A level of another bank as the scan sets it, with its words. */
 interface Level extends BankState {
@@ -51,6 +52,7 @@ function distinctLevels(board: Board, bank: BankModel, stepSets: readonly boolea
 
 /** The distinct levels a controller steps a bank through in the written order, lowest first (out of service first where it has a fixed part). */
 export function controllerLevels(board: Board, bank: BankModel): Level[] {
+  assertBoardModel(board);
   const n = bank.stepLoads.length;
   return distinctLevels(board, bank, Array.from({ length: n + 1 }, (_, on) => Array.from({ length: n }, (_, k) => k < on)));
 }
@@ -61,6 +63,7 @@ export function controllerLevels(board: Board, bank: BankModel): Level[] {
  * order stepCombinations gives). The first is everything off, the last everything on.
  */
 export function switchingLevels(board: Board, bank: BankModel): Level[] {
+  assertBoardModel(board);
   return distinctLevels(board, bank, stepCombinations(bank.stepLoads.length))
     .map((level, k) => ({ level, k }))
     .sort((a, b) => a.level.capacitorKvar - b.level.capacitorKvar || a.k - b.k)

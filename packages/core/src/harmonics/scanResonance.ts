@@ -18,6 +18,7 @@ import { createBoardScanEvaluator, type ScanEvaluator } from './scanEvaluator.js
 import { HARMONICS_DEFAULTS } from './harmonicsDefaults.js';
 import { stateKey, type BankModel, type HarmonicModel } from './harmonicModel.js';
 import type { ResonanceScan, ScanCombination, ScanPeak } from './harmonicsResult.js';
+import { assertBoardModel } from '../board/modelGuards.js';
 
 /** Every on/off pattern of n steps, all off first. */
 export function stepCombinations(n: number): boolean[][] {
@@ -34,6 +35,7 @@ export function combinationLabel(bank: BankModel | null, steps: readonly boolean
 
 /** Short-circuit power at the board from the impedance back to the source, VA; null on an ideal source. */
 export function shortCircuitVA(board: Board): number | null {
+  assertBoardModel(board);
   const z = abs(supplyPathImpedance(board));
   return z === 0 ? null : (board.phases.length * board.nominalLineToNeutralV ** 2) / z;
 }

@@ -43,6 +43,7 @@ export interface HarmonicsOptions {
  * @param networks compiled networks to reuse, where the same board is solved in many states
  */
 export function solveHarmonicOrders(board: Board, model: HarmonicModel, solve?: SolveOptions, networks?: CompiledNetworkCache): OrderSolution[] {
+  assertBoardModel(board);
   const fundamental = networks ? solveCompiledBoard(compileBoard(board, (i) => networks.compileForLoadFlow(i)), solve) : solveNetwork(board, solve);
   const orders = networks ? { networks } : {};
   return [{ order: 1, solution: fundamental }, ...ordersPresent(model).map((h) => ({ order: h, solution: solveAtOrder(fundamental, model, h, orders) }))];
@@ -50,6 +51,7 @@ export function solveHarmonicOrders(board: Board, model: HarmonicModel, solve?: 
 
 /** The board with the bank's steps switched as given (an off step draws nothing). */
 export function withSteps(board: Board, bank: BankModel, steps: readonly boolean[]): Board {
+  assertBoardModel(board);
   const off = new Set(bank.stepLoads.filter((_, k) => !steps[k]));
   return { ...board, loads: board.loads.map((l, i): BoardLoad => (off.has(i) ? { ...l, branches: l.branches.map((b) => ({ ...b, sNominal: { re: 0, im: 0 } })) } : l)) };
 }

@@ -9,11 +9,14 @@
 import { add, scale, ZERO, type ComplexValue } from '../complex.js';
 import type { BankInService, Board, BoardLoad, Installation } from '../board/boardModel.js';
 import { conventionsOf } from '../board/conventions/boardConventions.js';
+import { assertInstallationModel, assertBoardModel } from '../board/modelGuards.js';
+import { InputError, inputIssue } from '../errors.js';
 
 const mean = (zs: readonly ComplexValue[]) => scale(zs.reduce(add, ZERO), 1 / Math.max(zs.length, 1));
 
 /** The installation a board is part of, with the board's own (possibly edited) loads and feeder in place. */
 export function installationOf(board: Board): { installation: Installation; boardIndex: number } {
+  assertBoardModel(board);
   const place = board.installation;
   if (!place) return { installation: { name: board.name, main: board, subBoards: [] }, boardIndex: 0 };
   const { installation, boardIndex } = place;
@@ -40,6 +43,9 @@ export function installationOf(board: Board): { installation: Installation; boar
 
 /** Board number `index` of an installation as a `Board` (0 = the main board). */
 export function boardOfInstallation(installation: Installation, index: number): Board {
+  assertInstallationModel(installation);
+  if (!Number.isInteger(index) || index < 0 || index > installation.subBoards.length)
+    throw new InputError([inputIssue('out_of_range', 'index', `a board number from 0 (the main board) to ${installation.subBoards.length}`, index)], 'the index argument is not a board of this installation');
   const main = installation.main;
   const place = installation.subBoards.length > 0 ? { installation: { ...installation, main }, boardIndex: index } : undefined;
   if (index === 0) return place ? { ...main, installation: place } : main;
@@ -79,6 +85,7 @@ export const ratedKvarInService = (bank: BankInService): number => bank.fixedKva
  * that bank's place.
  */
 export function withoutBankOn(installation: Installation, b: number): Installation {
+  assertInstallationModel(installation);
   const record = installation.banksInService?.find((r) => r.boardIndex === b);
   if (!record) return installation;
   const parts = new Set(record.loads);

@@ -14,9 +14,11 @@ import { buildInstallationCircuit } from './installationCircuit.js';
 import { installationOf } from './installationModel.js';
 import type { NetworkSolution } from './solveNetwork.js';
 import { newtonSettings, newtonSolution, newtonVoltages, type NewtonOptions, type NewtonVoltages } from './solveNetworkByNewton.js';
+import { assertBoardModel } from '../board/modelGuards.js';
 
 /** The board with a fault resistance added in series with its neutral conductor (or the neutral open when `ohms` is null). */
 export function withNeutralFault(board: Board, ohms: number | null): Board {
+  assertBoardModel(board);
   if (ohms === null) return { ...board, neutralOpen: true };
   return { ...board, neutralOpen: false, neutralImpedance: add(board.neutralImpedance, complex(ohms, 0)) };
 }

@@ -12,6 +12,7 @@ import type { Installation } from '../board/boardModel.js';
 import { injectBranchSource, type FixedSolveOptions } from './solveFixedNetwork.js';
 import { compileInstallation, readInstallationSolution, type CompiledInstallation, type InstallationSolution } from './solveNetwork.js';
 import type { CompiledNetwork } from './compiledNetwork.js';
+import { assertInstallationModel } from '../board/modelGuards.js';
 
 /** Per board (0 = main board, i + 1 = `subBoards[i]`), per load, per branch. */
 export type PerBoardBranches<T> = readonly (readonly (readonly T[])[])[];
@@ -30,6 +31,7 @@ export interface FixedInstallationInput {
  * @throws {NumericalError} when the network is singular or a voltage is not finite.
  */
 export function solveFixedInstallation(installation: Installation, input: FixedInstallationInput, options: FixedSolveOptions = {}): InstallationSolution {
+  assertInstallationModel(installation);
   const compiled = options.networks ? options.networks.compileForLinearSolve(installation) : compileInstallation(installation);
   return solveWrittenInstallation(compiled, ({ layout, network: net }) => {
     const sources: (ComplexValue | null)[] = new Array(net.branchCount).fill(null);

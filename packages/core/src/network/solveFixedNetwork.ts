@@ -13,6 +13,7 @@ import { REFERENCE } from './networkTopology.js';
 import { compileBoard, type BranchState, type NetworkSolution } from './solveNetwork.js';
 import type { CompiledNetwork } from './compiledNetwork.js';
 import type { CompiledNetworkCache } from './compiledNetworkCache.js';
+import { assertBoardModel } from '../board/modelGuards.js';
 
 export interface FixedNetworkInput {
   /** Per load, per branch: the admittance to use, S. */
@@ -56,6 +57,7 @@ export interface FixedSolveOptions {
  * @throws {NumericalError} when the network is singular.
  */
 export function solveFixedNetwork(board: Board, input: FixedNetworkInput, options: FixedSolveOptions = {}): NetworkSolution {
+  assertBoardModel(board);
   const { networks } = options;
   const { topology: topo, network: net, installation, boardIndex } = compileBoard(board, networks ? (i) => networks.compileForLinearSolve(i) : undefined);
   const sourceOf = (l: number, k: number) => input.branchSources?.[l]?.[k] ?? null;

@@ -18,6 +18,7 @@ import { buildInstallationCircuit, type InstallationCircuit } from './installati
 import { boardOfInstallation, installationOf } from './installationModel.js';
 import { resolveSolveOptions, type SolveOptions } from './solveOptions.js';
 import { compileCircuit, type CompiledNetwork } from './compiledNetwork.js';
+import { assertBoardModel, assertInstallationModel } from '../board/modelGuards.js';
 
 export type { SolveOptions } from './solveOptions.js';
 
@@ -66,6 +67,7 @@ export interface CompiledInstallation {
 
 /** Compiles an installation (or a single board's one-board installation) once. */
 export function compileInstallation(installation: Installation): CompiledInstallation {
+  assertInstallationModel(installation);
   const layout = buildInstallationCircuit(installation);
   return { installation, layout, network: compileCircuit(layout.circuit) };
 }
@@ -93,6 +95,7 @@ export interface CompiledBoard {
  * @param compile how the installation is compiled, e.g. through a CompiledNetworkCache
  */
 export function compileBoard(board: Board, compile: (installation: Installation) => CompiledInstallation = compileInstallation): CompiledBoard {
+  assertBoardModel(board);
   const { installation, boardIndex } = installationOf(board);
   const compiled = compile(installation);
   return { board, boardIndex, topology: compiled.layout.topologies[boardIndex]!, installation: compiled, network: compiled.network };
@@ -241,6 +244,7 @@ export function readInstallationSolution(installation: Installation, layout: Ins
 
 /** Solves an installation once (compiles it first). */
 export function solveInstallationNetwork(installation: Installation, options?: SolveOptions): InstallationSolution {
+  assertInstallationModel(installation);
   resolveSolveOptions(options);
   return solveCompiledInstallation(compileInstallation(installation), options);
 }
@@ -255,6 +259,7 @@ const voltageOf = (voltages: readonly (ComplexValue | null)[], node: number): Co
  * @throws {NumericalError} when the network is singular or the load iteration does not settle.
  */
 export function solveNetwork(board: Board, options?: SolveOptions): NetworkSolution {
+  assertBoardModel(board);
   resolveSolveOptions(options);
   return solveCompiledBoard(compileBoard(board), options);
 }

@@ -19,6 +19,7 @@ import { REFERENCE, type Circuit } from './circuit.js';
 import { buildInstallationCircuit, type InstallationCircuit } from './installationCircuit.js';
 import { installationOf } from './installationModel.js';
 import { readInstallationSolution, type NetworkSolution } from './solveNetwork.js';
+import { assertBoardModel } from '../board/modelGuards.js';
 
 export interface NewtonOptions {
   /**
@@ -322,6 +323,7 @@ export function newtonSolution(
  * near its start is an answer for the callers (a fold, where a state ceases to exist).
  */
 export function solveNetworkByNewton(board: Board, start: readonly (ComplexValue | null)[], options: NewtonOptions = {}): NewtonOutcome {
+  assertBoardModel(board);
   const settings = newtonSettings(options);
   const layout = buildInstallationCircuit(installationOf(board).installation);
   const out = newtonVoltages(layout.circuit, board.nominalLineToNeutralV, start, settings);

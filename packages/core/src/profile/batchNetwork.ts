@@ -11,6 +11,7 @@
  */
 import type { Board, LoadBranch, BoardLoad, Terminal } from '../board/boardModel.js';
 import type { ComplexValue } from '../complex.js';
+import { assertBoardModel } from '../board/modelGuards.js';
 
 /** How one driver reaches the board's loads: load index → complex coefficient. */
 export interface DriverSpec {
@@ -48,6 +49,7 @@ export function edgeIndex(net: BatchNetwork, from: Terminal, to: Terminal, vNomi
 
 /** Groups the board's branches into edges and folds the drivers' coefficients onto them. */
 export function compileBatchNetwork(board: Board, drivers: readonly DriverSpec[], extraEdges: readonly BatchEdge[] = []): BatchNetwork {
+  assertBoardModel(board);
   const folded = foldDrivers(
     board.loads,
     (_, b) => ({ from: b.from, to: b.to, vNominal: b.vNominal }),

@@ -14,6 +14,8 @@ import type { Board, BoardLoad, PhaseId } from '../board/boardModel.js';
 import type { ComplexValue } from '../complex.js';
 import { InputError, inputIssue, type InputIssue } from '../errors.js';
 import type { DriverColumns, DriverSpec } from './batchNetwork.js';
+import { ownEntry } from '../_internal/ownEntry.js';
+import { assertBoardModel } from '../board/modelGuards.js';
 
 export const QUANTITIES = ['kW', 'kvar', 'pf', 'A', 'x'] as const;
 export type Quantity = (typeof QUANTITIES)[number];
@@ -104,10 +106,11 @@ function boardResolver(board: Board, groups: Readonly<Record<string, readonly st
         }
         return { kind: 'phase', loads: [loads.push(meteredPhaseLoad(`metered phase ${label(p)}`, p, board.nominalLineToNeutralV)) - 1] };
       }
-      if (groups[name]) {
-        const members = groups[name]!.map((n) => loadIndex.get(n));
+      const group = ownEntry(groups, name);
+      if (group) {
+        const members = group.map((n) => loadIndex.get(n));
         if (members.some((x) => x === undefined)) {
-          issues.push(inputIssue('unknown_load', `profile.groups.${name}`, 'names of loads on the board', groups[name]!.find((n) => !loadIndex.has(n))));
+          issues.push(inputIssue('unknown_load', `profile.groups.${name}`, 'names of loads on the board', group.find((n) => !loadIndex.has(n))));
           return null;
         }
         return { kind: 'group', loads: members as number[] };
@@ -124,6 +127,7 @@ function boardResolver(board: Board, groups: Readonly<Record<string, readonly st
  * @throws {InputError} naming each header cell that is wrong, with its column.
  */
 export function planColumns(board: Board, header: readonly string[], options: ColumnPlanOptions = {}): ColumnPlan {
+  assertBoardModel(board);
   const resolver = boardResolver(board, options.groups ?? {});
   return { board: { ...board, loads: resolver.loads }, ...planTargets(header, board.loads.length, resolver, options) };
 }

@@ -16,6 +16,7 @@ import { compileCircuit, type CompiledNetwork } from '../network/compiledNetwork
 import { foldDrivers, edgePowersAt, type BatchEdge, type DriverColumns, type DriverSpec } from './batchNetwork.js';
 import { newIntervalState, referenceAtCentroid, resolveKernelOptions, type IntervalState, type KernelOptions } from './batchKernel.js';
 import { allocateFigures, recordInterval, type IntervalFigures } from './solveBatch.js';
+import { assertInstallationModel } from '../board/modelGuards.js';
 
 /** An edge on one board (0 = main, i + 1 = subBoards[i]). */
 export interface InstallationEdge extends BatchEdge {
@@ -42,6 +43,7 @@ export function compileInstallationBatch(
   drivers: readonly DriverSpec[],
   extraEdges: readonly InstallationEdge[] = [],
 ): InstallationBatchNetwork {
+  assertInstallationModel(installation);
   const folded = foldDrivers(
     loads,
     (l, b) => ({ board: loadBoards[l]!, from: b.from, to: b.to, vNominal: b.vNominal }),

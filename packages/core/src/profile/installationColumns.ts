@@ -18,6 +18,8 @@ import { conventionsOf } from '../board/conventions/boardConventions.js';
 import { inputIssue, type InputIssue } from '../errors.js';
 import { bankPartIndices } from '../analysis/banksInServiceWords.js';
 import { meteredPhaseLoad, phaseTargetOf, planTargets, type ColumnPlan, type ColumnPlanOptions, type TargetResolver } from './columnPlan.js';
+import { ownEntry } from '../_internal/ownEntry.js';
+import { assertInstallationModel } from '../board/modelGuards.js';
 
 export interface InstallationColumnPlan extends ColumnPlan {
   /** Board number (0 = main, i + 1 = subBoards[i]) of each load in `board.loads`. */
@@ -134,9 +136,10 @@ function installationResolver(installation: Installation, groups: Readonly<Recor
         boards.push(metered.board);
         return { kind: 'phase', loads: [loads.push(meteredPhaseLoad(`${names[metered.board]}/metered phase ${label(metered.phase)}`, metered.phase, main.nominalLineToNeutralV)) - 1] };
       }
-      if (groups[name]) {
+      const group = ownEntry(groups, name);
+      if (group) {
         const members: number[] = [];
-        for (const [k, member] of groups[name]!.entries()) {
+        for (const [k, member] of group.entries()) {
           const l = oneLoad(member, `profile.groups.${name}[${k}]`, 'a load name on one board, or "<board>/<load>" (or "<board>//<load>")', issues);
           if (l === null) return null;
           members.push(l);
@@ -154,6 +157,7 @@ function installationResolver(installation: Installation, groups: Readonly<Recor
  * @throws {InputError} naming each header cell that is wrong (unknown or ambiguous load, bad quantity), with its column.
  */
 export function planInstallationColumns(installation: Installation, header: readonly string[], options: ColumnPlanOptions = {}): InstallationColumnPlan {
+  assertInstallationModel(installation);
   const flat = flattenLoads(installation);
   const boards = [...flat.boards];
   const resolver = installationResolver(installation, options.groups ?? {}, boards);

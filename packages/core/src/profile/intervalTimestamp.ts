@@ -8,7 +8,14 @@
 
 export type ParsedTimestamp =
   | { readonly ok: true; /** ms as if the wall-clock time were UTC */ readonly wallMs: number; /** offset written in the text, ms, or null */ readonly offsetMs: number | null }
-  | { readonly ok: false };
+  | { readonly ok: false; /** a well-formed time in a year before EARLIEST_YEAR */ readonly tooEarly?: true };
+
+/**
+ * The first year interval data may be in. Metered interval data is much younger; a year like 0050 is a
+ * typing slip or a wrong column, and would be misread besides (Date.UTC takes years 0–99 as 1900–1999),
+ * while before about 1900 the zone database has only local mean times. Common practice, no source.
+ */
+export const EARLIEST_YEAR = 1900;
 
 const digits = (s: string, from: number, count: number): number => {
   let v = 0;
@@ -23,6 +30,7 @@ const digits = (s: string, from: number, count: number): number => {
 const DAYS_IN_MONTH = [31, 29, 31, 30, 31, 30, 31, 31, 30, 31, 30, 31];
 
 export const TIMESTAMP_EXPECTED = 'a date and time like 2025-03-30 02:15, 2025-03-30T02:15:00Z or 2025-03-30T02:15:00+02:00';
+export const EARLY_YEAR_EXPECTED = `a date and time in ${EARLIEST_YEAR} or later (an earlier year is a slip or the wrong column)`;
 
 export function parseTimestamp(text: string): ParsedTimestamp {
   const s = text.trim();
@@ -33,6 +41,7 @@ export function parseTimestamp(text: string): ParsedTimestamp {
   const hour = digits(s, 11, 2);
   const minute = digits(s, 14, 2);
   if (year < 0 || month < 1 || month > 12 || day < 1 || hour < 0 || hour > 23 || minute < 0 || minute > 59) return { ok: false };
+  if (year < EARLIEST_YEAR) return { ok: false, tooEarly: true };
   if (day > DAYS_IN_MONTH[month - 1]! || (month === 2 && day === 29 && !(year % 4 === 0 && (year % 100 !== 0 || year % 400 === 0)))) return { ok: false };
   let i = 16;
   let ms = 0;

@@ -5,7 +5,7 @@
  */
 import { InputError, inputIssue, type InputIssue } from '../errors.js';
 import type { ColumnPlan } from './columnPlan.js';
-import { parseTimestamp, TIMESTAMP_EXPECTED } from './intervalTimestamp.js';
+import { EARLY_YEAR_EXPECTED, parseTimestamp, TIMESTAMP_EXPECTED } from './intervalTimestamp.js';
 import { createZoneClock, type ZoneClock } from './zoneClock.js';
 
 const MAX_ISSUES = 20;
@@ -53,6 +53,13 @@ const quantityOf = (header: string) => /\[\s*([A-Za-z]+)\s*\]$/.exec(header)?.[1
  * out figures (1e308 kW) that would end in overflow far from the cell that caused it.
  */
 const LARGEST: Readonly<Record<string, number>> = { kW: 1e6, kvar: 1e6, kVA: 1e6, A: 1e6, x: 1000 };
+
+/**
+ * A cell's number as people and meters write it: decimal, optional sign, fraction and exponent, spaces
+ * about it. Number() alone would also read 0x10, 0b11 and 0o7 (as 16, 3 and 7), "Infinity", and an
+ * empty cell as 0.
+ */
+const DECIMAL = /^\s*[+-]?(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?\s*$/;
 
 /** Range a quantity's value must fall in, and how to say it. */
 function checkValue(q: string, x: number): string | null {
@@ -102,7 +109,7 @@ export function createRowReader(plan: ColumnPlan, options: RowReaderOptions = {}
       }
       const t = parseTimestamp(record[0]!);
       if (!t.ok) {
-        report(inputIssue('bad_time', cellPath(plan, row, 0), TIMESTAMP_EXPECTED, record[0]));
+        report(inputIssue('bad_time', cellPath(plan, row, 0), t.tooEarly ? EARLY_YEAR_EXPECTED : TIMESTAMP_EXPECTED, record[0]));
         return;
       }
       let instant: number;
@@ -129,8 +136,8 @@ export function createRowReader(plan: ColumnPlan, options: RowReaderOptions = {}
       let ok = true;
       for (let c = 1; c < width; c++) {
         const text = record[c]!;
-        const x = text.trim() === '' ? Number.NaN : Number(text);
-        const bad = Number.isFinite(x) ? checkValue(quantities[c - 1]!, x) : 'a number (an empty cell is not read as zero: leave the row out to make a gap)';
+        const x = DECIMAL.test(text) ? Number(text) : Number.NaN;
+        const bad = Number.isFinite(x) ? checkValue(quantities[c - 1]!, x) : 'a number written in decimal, such as 1.25, -0.4 or 2e3 (an empty cell is not read as zero: leave the row out to make a gap)';
         if (bad) {
           report(inputIssue('bad_value', cellPath(plan, row, c), bad, text));
           ok = false;

@@ -23,6 +23,7 @@ import { asPrinted } from '../board/conventions/voltageLimits.js';
 import { resolveLimits } from './studyProfile.js';
 import type { ResolvedLimits } from './summariseFigures.js';
 import { readBoardScenarios, scenarioDrivers, scenarioHours, type BoardScenarios } from './studyScenarios.js';
+import { ownEntry } from '../_internal/ownEntry.js';
 
 export interface InstallationScenarioBoard extends BoardScenarios {
   readonly board: string;
@@ -84,7 +85,7 @@ export function studyInstallationScenarios(installation: Installation, profile: 
   const named = scenarios.map((s, k) =>
     Object.entries(s.loads).map(([name, scale]) => {
       // A group of that name wins, as in the interval data's columns.
-      const loads = groups[name] ? (members.get(name) ?? []) : [oneLoad(name, `profile.scenarios[${k}].loads.${name}`, EXPECTED_LOAD)].filter((l): l is number => l !== null);
+      const loads = ownEntry(groups, name) ? (members.get(name) ?? []) : [oneLoad(name, `profile.scenarios[${k}].loads.${name}`, EXPECTED_LOAD)].filter((l): l is number => l !== null);
       return { loads, scale };
     }),
   );

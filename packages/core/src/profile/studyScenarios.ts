@@ -16,6 +16,7 @@ import type { ProfileSpec, ScenarioSpec } from './profileSpec.js';
 import { allocateFigures, solveBatch, type IntervalFigures } from './solveBatch.js';
 import { billingPowerFactor } from './billingPowerFactor.js';
 import { clearRoundOff, conductorFloorA } from './intervalRoundOff.js';
+import { ownEntry } from '../_internal/ownEntry.js';
 
 export interface ScenarioReading {
   readonly name: string;
@@ -136,12 +137,12 @@ export function studyScenarios(board: Board, profile: ProfileSpec): ScenarioResu
   const hours = scenarioHours(scenarios, issues);
   scenarios.forEach((s, k) => {
     for (const name of Object.keys(s.loads))
-      if (!loadIndex.has(name) && !groups[name]) issues.push(inputIssue('unknown_load', `profile.scenarios[${k}].loads.${name}`, 'a load or group name of this board', name));
+      if (!loadIndex.has(name) && !ownEntry(groups, name)) issues.push(inputIssue('unknown_load', `profile.scenarios[${k}].loads.${name}`, 'a load or group name of this board', name));
   });
   if (issues.length) throw new InputError(issues, 'the scenarios are not valid');
   const { drivers, columns } = scenarioDrivers(board.loads, scenarios, (s) => {
     const scales = new Float64Array(board.loads.length).fill(s.others ?? 0);
-    for (const [name, scale] of Object.entries(s.loads)) for (const n2 of groups[name] ?? [name]) scales[loadIndex.get(n2)!] = scale;
+    for (const [name, scale] of Object.entries(s.loads)) for (const n2 of ownEntry(groups, name) ?? [name]) scales[loadIndex.get(n2)!] = scale;
     return scales;
   });
   const figures = allocateFigures(scenarios.length, board.phases.length);

@@ -8,6 +8,8 @@
  * a day in practice.
  */
 
+import { InputError, inputIssue } from '../errors.js';
+
 const DAY_MS = 86_400_000;
 const MINUTE_MS = 60_000;
 
@@ -45,7 +47,13 @@ export function isKnownTimeZone(zone: string): boolean {
   }
 }
 
+/**
+ * @throws {InputError} at `timeZone` when the zone is not a name this platform's time-zone database
+ *   knows (Intl would throw a bare RangeError from deep inside the read)
+ */
 export function createZoneClock(zone: string): ZoneClock {
+  if (typeof zone !== 'string' || !isKnownTimeZone(zone))
+    throw new InputError([inputIssue('unknown_time_zone', 'timeZone', 'an IANA time zone this system knows, such as Europe/Lisbon or America/Chicago (default UTC)', zone)], 'the options are not valid');
   if (zone === 'UTC') return { zone, offsetAt: () => 0, instantsOf: (l) => [l], isUnambiguous: (_u, o) => o === 0 };
   const format = new Intl.DateTimeFormat('en-US', {
     timeZone: zone,

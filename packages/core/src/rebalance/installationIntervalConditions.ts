@@ -10,6 +10,7 @@ import type { BoardLoad, Installation } from '../board/boardModel.js';
 import type { DriverColumns, DriverSpec } from '../profile/batchNetwork.js';
 import { boardNamesOf, type InstallationColumnPlan } from '../profile/installationColumns.js';
 import { conditionsFromIntervals, type IntervalConditionOptions, type IntervalPick, type LoadConditionInput } from './intervalConditions.js';
+import { assertInstallationModel } from '../board/modelGuards.js';
 
 export interface InstallationIntervalConditions {
   /** The installation to rebalance: zero-rated loads re-rated at 1 VA, metered phase totals added on their boards. */
@@ -48,6 +49,7 @@ export function conditionsFromInstallationIntervals(
   intervalMs: number,
   options: Omit<IntervalConditionOptions, 'parts'> = {},
 ): InstallationIntervalConditions {
+  assertInstallationModel(installation);
   const names = boardNamesOf(installation);
   const parts = installation.subBoards.map((_, i) => {
     const through = fedThrough(installation, i + 1);

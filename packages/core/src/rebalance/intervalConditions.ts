@@ -21,6 +21,7 @@ import type { Board } from '../board/boardModel.js';
 import { abs, add, complex, div, mul, ZERO, type ComplexValue } from '../complex.js';
 import type { DriverColumns, DriverSpec } from '../profile/batchNetwork.js';
 import { fixedLoadLineCurrents, nominalPhaseVoltages } from './buildAssignmentProblem.js';
+import { assertBoardModel } from '../board/modelGuards.js';
 
 export interface IntervalConditionOptions {
   /** Quantile picks of the total apparent power besides the peaks. @defaultValue 8 */
@@ -75,6 +76,7 @@ export function conditionsFromIntervals(
   intervalMs: number,
   options: IntervalConditionOptions = {},
 ): IntervalConditions {
+  assertBoardModel(board);
   const spread = options.spread ?? 8;
   const n = columns.count;
   const hoursEach = intervalMs / 3_600_000;

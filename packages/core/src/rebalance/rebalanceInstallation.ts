@@ -30,7 +30,7 @@ import {
 } from './assignmentProblem.js';
 import { magnitudeBoundsWithMoveLimit } from './assignmentBounds.js';
 import { buildAssignmentProblem, type BuiltProblem } from './buildAssignmentProblem.js';
-import { conditionFigures, builtInObjective, type ConditionFigures, type ConditionLayout, type RebalanceObjective } from './rebalanceObjective.js';
+import { conditionFigures, builtInObjective, guardedObjective, type ConditionFigures, type ConditionLayout, type RebalanceObjective } from './rebalanceObjective.js';
 import { resolveRebalanceSpec, type RebalanceContext, type ResolvedRebalance } from './rebalanceRules.js';
 import { rebalanceTree, type RebalanceTree } from './rebalanceTree.js';
 import { searchExact } from './searchExact.js';
@@ -77,7 +77,8 @@ export interface RebalanceOptions {
   readonly moveTable?: boolean;
   /**
    * Your own score of the condition figures (lower is better) instead of the
-   * aim weights. It must never fall when a figure grows (see `RebalanceObjective`).
+   * aim weights. It must never fall when a figure grows (see `RebalanceObjective`). It sees frozen
+   * copies of the figures; a score that is not a finite number is refused (InputError at `objective`).
    */
   readonly objective?: RebalanceObjective;
   /** The file's `profile:` section, read when the study's conditions are `"scenarios"`. */
@@ -108,7 +109,7 @@ function resolveOptions(options: RebalanceOptions): ResolvedOptions {
     kicks: options.kicks ?? 100,
     seed: options.seed ?? 1,
     moveTable: options.moveTable ?? true,
-    objective: options.objective,
+    objective: options.objective && guardedObjective(options.objective),
   };
 }
 

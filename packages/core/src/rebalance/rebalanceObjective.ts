@@ -3,6 +3,7 @@
  * built-in weighted score, and the adapter for a caller's own objective. Every
  * score here is non-decreasing in each magnitude, which the bounds rely on.
  */
+import { InputError, inputIssue } from '../errors.js';
 import type { AimFigure } from './rebalanceSpec.js';
 
 /** Where the quantities of one condition at one measured board sit in the problem's quantity list. */
@@ -137,6 +138,28 @@ export function builtInObjective(aim: AimWeights, combine: 'worst' | 'weighted',
     const perCondition = new Map<number, number>();
     figures.forEach((f, k) => perCondition.set(layouts[k]!.condition, (perCondition.get(layouts[k]!.condition) ?? 0) + conditionScore(f, aim)));
     return combineConditionScores(perCondition, layouts, totalWeight, combine);
+  };
+}
+
+/** A figure set as the caller's score sees it: a copy, frozen, so a score that writes into it changes nothing of ours. */
+function frozenFigures(f: ConditionFigures): ConditionFigures {
+  return Object.freeze({ ...f, lineA: Object.freeze([...f.lineA]) });
+}
+
+/**
+ * A caller's objective as the study calls it: on frozen copies of the figures, its score checked. A score
+ * that is not a finite number (NaN, a string, ±Infinity) would compare false with every other, and the
+ * search would keep whatever it met first and call it proven: refused instead.
+ * @throws {InputError} at `objective` when a score is not a finite number
+ */
+export function guardedObjective(objective: RebalanceObjective): RebalanceObjective {
+  return (figures) => {
+    const score: unknown = objective(Object.freeze(figures.map(frozenFigures)));
+    if (typeof score === 'number' && Number.isFinite(score)) return score;
+    throw new InputError(
+      [inputIssue('invalid_score', 'objective', 'a finite number from the objective for every set of condition figures (lower is better)', score)],
+      'rebalanceBoard options are not valid',
+    );
   };
 }
 

@@ -17,6 +17,7 @@ import { ONE_SHOT_PARSE } from '../_internal/oneShotParse.js';
 import { conventionsOf } from '../board/conventions/boardConventions.js';
 import { labellerOf } from '../board/conventions/phaseNames.js';
 import { inFileNaming } from '../board/conventions/issueNaming.js';
+import { ownEntry } from '../_internal/ownEntry.js';
 
 export const LINE_TO_NEUTRAL: readonly ConnectionSpec[] = ['A-N', 'B-N', 'C-N'];
 export const LINE_TO_LINE: readonly ConnectionSpec[] = ['A-B', 'B-C', 'C-A'];
@@ -149,8 +150,9 @@ function pinIssues(spec: RebalanceSpec, tree: RebalanceTree, pinned: Map<number,
 export function conditionsFromScenarios(profile: ProfileSpec): LoadConditionSpec[] {
   const groups = profile.groups ?? {};
   return (profile.scenarios ?? []).map((s) => {
-    const circuits: Record<string, number> = {};
-    for (const [name, f] of Object.entries(s.loads)) for (const member of groups[name] ?? [name]) circuits[member] = f;
+    // No prototype: a circuit called `constructor` or `toString` is an entry like any other.
+    const circuits: Record<string, number> = Object.create(null);
+    for (const [name, f] of Object.entries(s.loads)) for (const member of ownEntry(groups, name) ?? [name]) circuits[member] = f;
     return { name: s.name, weight: s.hours ?? s.weight ?? 1, factor: s.others ?? 0, circuits };
   });
 }

@@ -8,13 +8,44 @@ import { isMap, isSeq, parseDocument, type YAMLMap } from 'yaml';
 import type { CircuitMove } from './rebalanceResult.js';
 import { readPhaseTerm, spellIn } from '../board/conventions/phaseNames.js';
 import { assertText } from '../board/modelGuards.js';
+import { CONNECTIONS } from '../board/boardRanges.js';
+import { InputError, inputIssue } from '../errors.js';
 
 /** The new connection in the naming the file wrote the old one in (L1-N for a file in L1/L2/L3). */
 const asWritten = (old: unknown, to: string) => spellIn((typeof old === 'string' && readPhaseTerm(old)?.naming) || 'A/B/C', to);
 
 type Move = Pick<CircuitMove, 'listPosition' | 'name' | 'to'> & { readonly board?: string };
 
-const mismatch = (m: Move) => new Error(`rewriteBoardText: load ${m.listPosition} is not "${m.name}"${m.board ? ` on board "${m.board}"` : ''} in this text`);
+const HEADING = 'rewriteBoardText: the moves do not fit this text';
+
+/** A move that names a load the text does not have at that place: the report is of another file. */
+const mismatch = (m: Move, k: number, found: unknown) =>
+  new InputError(
+    [inputIssue('not_in_text', `moves[${k}]`, `load ${m.listPosition}${m.board ? ` of board "${m.board}"` : ''} to be "${m.name}", as in the file the report was made from`, found)],
+    HEADING,
+  );
+
+/**
+ * The moves as a report gives them, checked before the text is touched: a move to a connection no board
+ * takes (`Z-N`) would be written into the file as it stands.
+ * @returns each move's connection in A/B/C naming (a move may spell it L1-N)
+ */
+function checkedMoves(moves: unknown): string[] {
+  if (!Array.isArray(moves)) throw new InputError([inputIssue('invalid_type', 'moves', 'the list of moves of a rebalancing report (report.moves)', moves)], HEADING);
+  const issues = moves.flatMap((m: unknown, k) => {
+    if (typeof m !== 'object' || m === null) return [inputIssue('invalid_type', `moves[${k}]`, 'a move { listPosition, name, to }', m)];
+    const { listPosition, name, to } = m as Record<string, unknown>;
+    const found = [];
+    if (!Number.isInteger(listPosition) || (listPosition as number) < 1) found.push(inputIssue('invalid_value', `moves[${k}].listPosition`, "the load's place in its loads list, a whole number from 1", listPosition));
+    if (typeof name !== 'string') found.push(inputIssue('invalid_type', `moves[${k}].name`, "the load's name, as text", name));
+    const canonical = typeof to === 'string' ? (readPhaseTerm(to)?.canonical ?? to) : undefined;
+    if (!(CONNECTIONS as readonly unknown[]).includes(canonical))
+      found.push(inputIssue('invalid_value', `moves[${k}].to`, `a connection: one of ${CONNECTIONS.map((c) => `"${c}"`).join(', ')} (or its L1/L2/L3 spelling)`, to));
+    return found;
+  });
+  if (issues.length) throw new InputError(issues, HEADING);
+  return moves.map((m: Move) => readPhaseTerm(m.to)?.canonical ?? m.to);
+}
 
 interface JsonBoard {
   name?: string;
@@ -22,20 +53,22 @@ interface JsonBoard {
 }
 
 /** The loads list a move refers to: the file's own (a board file) or its board's (an installation file). */
-function jsonLoads(file: JsonBoard & { boards?: JsonBoard[] }, m: Move) {
-  if (!file.boards) return file.loads;
-  const board = file.boards.find((b) => b.name === m.board);
-  if (!board) throw mismatch(m);
+function jsonLoads(file: JsonBoard & { boards?: JsonBoard[] }, m: Move, k: number): unknown {
+  if (!Array.isArray(file.boards)) return file.loads;
+  const board = file.boards.find((b) => b?.name === m.board);
+  if (!board) throw mismatch(m, k, undefined);
   return board.loads;
 }
 
-function yamlLoads(doc: ReturnType<typeof parseDocument>, m: Move) {
+function yamlLoads(doc: ReturnType<typeof parseDocument>, m: Move, k: number) {
   const boards = doc.get('boards');
   if (!isSeq(boards)) return doc.get('loads');
   const board = boards.items.find((b): b is YAMLMap => isMap(b) && b.get('name') === m.board);
-  if (!board) throw mismatch(m);
+  if (!board) throw mismatch(m, k, undefined);
   return board.get('loads');
 }
+
+const noLoads = () => new InputError([inputIssue('missing', 'text', 'a board or installation file with a loads list')], HEADING);
 
 /**
  * @param text the board or installation file as read (YAML or JSON).
@@ -46,23 +79,31 @@ function yamlLoads(doc: ReturnType<typeof parseDocument>, m: Move) {
  */
 export function rewriteBoardText(text: string, moves: readonly Move[]): string {
   assertText(text);
+  const targets = checkedMoves(moves);
   if (/^\s*\{/.test(text)) {
-    const file = JSON.parse(text) as JsonBoard & { boards?: JsonBoard[] };
-    for (const m of moves) {
-      const load = jsonLoads(file, m)[m.listPosition - 1];
-      if (!load || load.name !== m.name) throw mismatch(m);
-      load.connection = asWritten(load.connection, m.to);
+    let file: JsonBoard & { boards?: JsonBoard[] };
+    try {
+      file = JSON.parse(text) as typeof file;
+    } catch (error) {
+      throw new InputError([inputIssue('invalid_json', 'text', 'the JSON text of a board or installation file', (error as Error).message)], HEADING);
     }
+    moves.forEach((m, k) => {
+      const loads = jsonLoads(file, m, k);
+      if (!Array.isArray(loads)) throw noLoads();
+      const load = loads[m.listPosition - 1] as { name?: unknown; connection?: unknown } | undefined;
+      if (typeof load !== 'object' || load === null || load.name !== m.name) throw mismatch(m, k, typeof load === 'object' && load !== null ? load.name : undefined);
+      load.connection = asWritten(load.connection, targets[k]!);
+    });
     return `${JSON.stringify(file, null, 2)}\n`;
   }
   const doc = parseDocument(text);
-  for (const m of moves) {
-    const loads = yamlLoads(doc, m);
-    if (!isSeq(loads)) throw new Error('rewriteBoardText: the text has no loads list');
+  moves.forEach((m, k) => {
+    const loads = yamlLoads(doc, m, k);
+    if (!isSeq(loads)) throw noLoads();
     const load = loads.items[m.listPosition - 1];
-    if (!isMap(load) || load.get('name') !== m.name) throw mismatch(m);
-    load.set('connection', asWritten(load.get('connection'), m.to));
-  }
+    if (!isMap(load) || load.get('name') !== m.name) throw mismatch(m, k, isMap(load) ? load.get('name') : undefined);
+    load.set('connection', asWritten(load.get('connection'), targets[k]!));
+  });
   return doc.toString();
 }
 

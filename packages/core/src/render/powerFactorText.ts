@@ -7,11 +7,15 @@
  */
 import type { PowerReading } from '../analysis/boardResult.js';
 import { fixed } from './svgText.js';
+import { argumentIssueError, checkNumberArgument } from '../_internal/argumentChecks.js';
 
 /** True when the power, as printed to 2 decimals, flows back toward the supply. */
 export const isExportKW = (kW: number): boolean => fixed(kW, 2).startsWith('-');
 
 export function powerFactorText(r: Pick<PowerReading, 'pf' | 'sense' | 'kVA' | 'kW' | 'kvar'>, none = '-'): string {
+  if (typeof r !== 'object' || r === null) throw argumentIssueError('reading', 'a power reading { pf, sense, kVA, kW, kvar } of a solved board', r);
+  for (const key of ['kVA', 'kW', 'kvar'] as const) checkNumberArgument(r[key], `reading.${key}`, 'a finite number');
+  if (r.pf !== null) checkNumberArgument(r.pf, 'reading.pf', 'a power factor from -1 to 1, or null where no power flows', (x) => Math.abs(x) <= 1 + 1e-9);
   if (r.pf === null || fixed(r.kVA, 2) === '0.00') return none;
   const pf = fixed(Math.abs(r.pf), 3);
   if (isExportKW(r.kW)) return `${pf} export`;

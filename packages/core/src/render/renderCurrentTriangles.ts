@@ -10,6 +10,7 @@ import { EQUIPMENT_COLOUR, GRID_COLOUR, INK, MUTED_INK, PHASE_COLOUR } from './p
 import { phasorScale } from './phasorScale.js';
 import { arrow, scaleBar, subscripted, type Point } from './svgShapes.js';
 import { attrs, coord, escapeXml, fixed, sig3 } from './svgText.js';
+import { assertBoardResult } from '../analysis/resultGuards.js';
 
 export interface LineCurrentParts {
   /** P/|V|, A (negative when the line exports). */
@@ -47,6 +48,8 @@ const pfText = (r: LineCurrentParts): string => r.pf === null ? 'no current' : `
  * @param after the same board with it (same phases)
  */
 export function renderCurrentTriangles(before: BoardResult, after: BoardResult, options: CurrentTriangleOptions = {}): string {
+  assertBoardResult(before, 'before');
+  assertBoardResult(after, 'after');
   const { panelWidth, top, bottomText, widthBudget, heightBudget } = TRIANGLE_LAYOUT;
   // Visible labels follow the board's phase names; data-phase attributes keep A/B/C.
   const label = (phase: string) => labelIn(before.conventions.phaseNames, phase);

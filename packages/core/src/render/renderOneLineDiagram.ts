@@ -10,6 +10,7 @@ import { layOutOneLine, SUPPLY_HALF_HEIGHT } from './oneLineLayout.js';
 import { INK, MUTED_INK, GRID_COLOUR } from './palette.js';
 import { attrs, coord, escapeXml, fixed, sig3 } from './svgText.js';
 import { GLYPH_WIDTH_EM } from './labelPlacement.js';
+import { assertInstallationResult } from '../analysis/resultGuards.js';
 
 export interface OneLineDiagramOptions {
   /** Heading inside the drawing. @defaultValue `One-line drawing of the installation` */
@@ -89,6 +90,7 @@ function strokeFor(f: FeederReading, largest: number): number {
  * const svg = renderOneLineDiagram(solveInstallation(installationFile));
  */
 export function renderOneLineDiagram(result: InstallationResult, options: OneLineDiagramOptions = {}): string {
+  assertInstallationResult(result);
   const labels = result.boards[0]!.result.conventions.phaseLabels as Readonly<Record<string, string>>;
   const phaseName = options.phaseName ?? ((p: string) => labels[p] ?? p);
   const layout = layOutOneLine(result, L);

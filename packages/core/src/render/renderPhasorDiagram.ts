@@ -12,6 +12,7 @@ import { phasorScale, type PhasorScale } from './phasorScale.js';
 import { arrow, scaleBar, subscripted, type Point } from './svgShapes.js';
 import { attrs, coord, escapeXml, sig3 } from './svgText.js';
 import { placeLabels, textBox, type Box, type LabelRequest } from './labelPlacement.js';
+import { assertBoardResult } from '../analysis/resultGuards.js';
 
 export interface PhasorDiagramOptions {
   /**
@@ -127,6 +128,8 @@ function legend(y: number, overlay: boolean, v: PhasorScale, i: PhasorScale, has
  * const svg = renderPhasorDiagram(solveBoard(boardFile), { after: correction.verification.after });
  */
 export function renderPhasorDiagram(result: BoardResult, options: PhasorDiagramOptions = {}): string {
+  assertBoardResult(result);
+  if (options.after !== undefined) assertBoardResult(options.after, 'options.after');
   const { width, height, cx, cy, radius, currentShare } = PHASOR_LAYOUT;
   const after = options.after;
   const drawn = after ? [...collect(result, 'before', false, false), ...collect(after, 'after', true, true)] : collect(result, 'only', true, true);

@@ -12,8 +12,11 @@ export type PhaseNaming = (typeof PHASE_NAMINGS)[number];
 
 const NUMBERED: Readonly<Record<PhaseId, string>> = { A: 'L1', B: 'L2', C: 'L3' };
 
+/** A lookup table without a prototype: `term in table` and `table[term]` see only its own terms, never `constructor`. */
+const ownTable = (entries: Record<string, string>): Readonly<Record<string, string>> => Object.assign(Object.create(null) as Record<string, string>, entries);
+
 /** Every phase-bearing term trivar reads, in its A/B/C spelling → its L1/L2/L3 spelling. */
-export const NUMBERED_SPELLING: Readonly<Record<string, string>> = {
+export const NUMBERED_SPELLING: Readonly<Record<string, string>> = ownTable({
   A: 'L1',
   B: 'L2',
   C: 'L3',
@@ -27,11 +30,11 @@ export const NUMBERED_SPELLING: Readonly<Record<string, string>> = {
   'ABC-delta': 'L1L2L3-delta',
   ABC: 'L1L2L3',
   ACB: 'L1L3L2',
-};
+});
 
-const LETTERED_SPELLING: Readonly<Record<string, string>> = Object.fromEntries(Object.entries(NUMBERED_SPELLING).map(([a, l]) => [l, a]));
+const LETTERED_SPELLING: Readonly<Record<string, string>> = ownTable(Object.fromEntries(Object.entries(NUMBERED_SPELLING).map(([a, l]) => [l, a])));
 /** Line pairs written the other way round (L2-L1 for L1-L2) are the same pair of lines. */
-export const REVERSED_PAIRS: Readonly<Record<string, string>> = { 'B-A': 'A-B', 'C-B': 'B-C', 'A-C': 'C-A', 'L2-L1': 'A-B', 'L3-L2': 'B-C', 'L1-L3': 'C-A' };
+export const REVERSED_PAIRS: Readonly<Record<string, string>> = ownTable({ 'B-A': 'A-B', 'C-B': 'B-C', 'A-C': 'C-A', 'L2-L1': 'A-B', 'L3-L2': 'B-C', 'L1-L3': 'C-A' });
 
 /** Which naming a term is written in, and its A/B/C spelling; null when it names no phase. */
 export function readPhaseTerm(term: string): { naming: PhaseNaming; canonical: string } | null {

@@ -68,7 +68,9 @@ export class Speller {
       const name = this.term(k, `${path}.${key}.${k}`);
       if (name !== k && k in inner && name in inner)
         this.issues.push(inputIssue('duplicate_phase', `${path}.${key}.${k}`, `each phase once: ${k} and ${name} are the same phase`, k));
-      out[name] = v;
+      // Defined, not assigned: a `__proto__` key assigned would become the copy's prototype and its
+      // entries this object's keys, reported at the wrong path.
+      Object.defineProperty(out, name, { value: v, enumerable: true, writable: true, configurable: true });
     }
     obj[key] = out;
   }

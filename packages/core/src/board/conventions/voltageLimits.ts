@@ -7,6 +7,7 @@
  * shows "95.0 %" beside a verdict that 95 % is outside a −5 % limit.
  */
 import type { Region } from './region.js';
+import { checkNumberArgument } from '../../_internal/argumentChecks.js';
 
 export interface VoltageLimitPreset {
   /** Allowed fall below nominal, %. */
@@ -72,6 +73,10 @@ export const asPrinted = (percent: number): number => Math.round(percent * 10) /
 
 /** Where a voltage (% of nominal) stands against the limits, judged on its printed figure. */
 export function judgeVoltage(limits: VoltageLimits, percent: number): 'under' | 'over' | 'within' {
+  // NaN compares false with both ends and would read as within the limits.
+  checkNumberArgument(percent, 'percent', 'a voltage as a finite percentage of nominal, e.g. 97.4');
+  checkNumberArgument(limits?.underPercent, 'limits.underPercent', 'a finite percentage below nominal, from 0 to 100', (x) => x >= 0 && x <= 100);
+  checkNumberArgument(limits?.overPercent, 'limits.overPercent', 'a finite percentage above nominal, 0 or more', (x) => x >= 0);
   const p = asPrinted(percent);
   if (p < 100 - limits.underPercent) return 'under';
   if (p > 100 + limits.overPercent) return 'over';

@@ -17,6 +17,8 @@ import { installationSection, openNeutralSection, resultsSection, scheduleSectio
 import { correctionSection, nothingToAdd, resonanceSection } from './correctionSection.js';
 import { labelIn } from '../../board/conventions/phaseNames.js';
 import { BOARD_STANDARDS, CORRECTION_ASSUMPTIONS, CORRECTION_STANDARDS, modelAssumptions, THREE_PHASE_STANDARDS } from './reportWording.js';
+import { assertBoardResult } from '../../analysis/resultGuards.js';
+import { argumentError, isObject } from '../../board/modelGuards.js';
 
 export interface BoardReportInput {
   /** The board file as validated (`parseBoard`; the board’s own fields are read): names, circuit numbers, breakers, supply data. */
@@ -95,6 +97,9 @@ export function placeSection(sections: ReportSection[], section: ReportSection):
  * doc.sections.map((s) => s.id) //=> ['installation', 'schedule', 'results', 'assumptions', 'standards', 'cautions']
  */
 export function buildBoardReport(input: BoardReportInput): ReportDocument {
+  if (!isObject(input)) throw argumentError('input', '{ spec, result } (the validated board file and its solved board)', input, 'the input argument is not a report input');
+  assertBoardResult(input.result, 'input.result');
+  if (!isObject(input.spec) || !Array.isArray(input.spec.loads)) throw argumentError('input.spec', 'the board file as validated, from parseBoard(...)', input.spec, 'the input argument is not a report input');
   const { spec, result } = input;
   const correction = input.correction ?? null;
   const fileBank = (spec as { harmonics?: { bank?: Parameters<typeof resultsSection>[1] } }).harmonics?.bank;

@@ -20,6 +20,8 @@ import { correctionSection, nothingToAdd, resonanceSection } from './correctionS
 import { openNeutralSection } from './boardSections.js';
 import { banksPlacementWords, type BanksPlacement } from '../../correction/banksPlacementWords.js';
 import { INSTALLATION_ASSUMPTIONS } from './reportWording.js';
+import { assertInstallationResult } from '../../analysis/resultGuards.js';
+import { argumentError, isObject } from '../../board/modelGuards.js';
 
 export interface InstallationReportInput {
   /** The installation file as validated (`parseInstallation`). */
@@ -68,6 +70,9 @@ function withBanksPlacement(placement: BanksPlacement | null): (section: ReportS
 }
 
 export function buildInstallationReport(input: InstallationReportInput): ReportDocument {
+  if (!isObject(input)) throw argumentError('input', '{ spec, result } (the validated installation file and its solved installation)', input, 'the input argument is not a report input');
+  assertInstallationResult(input.result, 'input.result');
+  if (!isObject(input.spec) || !Array.isArray(input.spec.boards)) throw argumentError('input.spec', 'the installation file as validated, from parseInstallation(...)', input.spec, 'the input argument is not a report input');
   const { spec, result } = input;
   const ids = boardSectionIds(result.boards.map((b) => b.name));
   const sections: ReportSection[] = [installationDescription(spec, result), feedersSection(result), totalsSection(result)];
