@@ -197,7 +197,7 @@ export const loadSchema = z.strictObject({
   A: within(PHYSICAL_RANGES.loadA).optional().describe('current at nominal voltage, A (line current for three-phase loads)'),
   pf: within(PHYSICAL_RANGES.pf).optional().describe('displacement power factor, 0.01 <= pf <= 1'),
   sense: z.enum(PF_SENSES).optional().describe('whether pf is lagging (inductive, default) or leading'),
-  ohms: loadImpedanceSchema.optional().describe('impedance per phase (star) or per branch (delta), ohm'),
+  ohms: loadImpedanceSchema.optional().describe('impedance per phase (star) or per branch (delta), ohm; its draw at nominal voltage (branches × V²/|Z|) at most the kVA limit of a load, 100,000 kVA'),
   model: z.enum(LOAD_MODELS).optional().describe('voltage dependence; default constant-power, constant-impedance for ohms'),
   zip: z
     .strictObject({ z: nonNegative.max(1), i: nonNegative.max(1), p: nonNegative.max(1) })
