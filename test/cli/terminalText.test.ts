@@ -13,17 +13,22 @@ const board = JSON.stringify({
 const CONTROL = /[\u0000-\u0008\u000b-\u001f\u007f-\u009f\u202a-\u202e]/;
 
 describe('control characters in names', () => {
-  it('are shown escaped in the text report, and cannot forge a section', () => {
+  // Names may not hold them (boardRanges.ts NAME_WITHOUT_CONTROLS): the file is refused, and the
+  // message quoting the names cannot act on the terminal or forge a line either.
+  it('are refused in names at their field paths, the message escaped', () => {
     const r = runTrivar(['solve', '-'], board);
-    expect(r.code).toBe(0);
-    expect(r.stdout).not.toMatch(CONTROL);
-    expect(r.stdout).toContain('Oven\\e[2J\\e]0;owned\\u{7}\\nWarnings\\n  none\\0\\u{9B}31m\\u{202E}');
-    expect(r.stdout.match(/^Warnings$/gm)).toHaveLength(1);
-    expect(r.stdout.split('\n')[0]).toBe('Board\\e[H');
+    expect(r.code).toBe(3);
+    expect(r.stdout).toBe('');
+    expect(r.stderr).not.toMatch(CONTROL);
+    expect(r.stderr).toMatch(/^ {2}- name: expected text without control characters/m);
+    expect(r.stderr).toMatch(/^ {2}- loads\[0\]\.name: expected text without control characters .* \(received "Oven\\u001b\[2J\\u001b\]0;owned/m);
+    expect(r.stderr.match(/^Warnings$/gm)).toBeNull();
   });
-  it('stay exact in JSON', () => {
-    const r = runTrivar(['solve', '-', '--json'], board);
-    expect(JSON.parse(r.stdout).loads[0].name).toBe(hostileName);
+  it('other scripts and marks stay exact in JSON: accents, CJK, right-to-left letters, emoji', () => {
+    const readable = 'Four à pain 東京 שלום 🔥';
+    const r = runTrivar(['solve', '-', '--json'], JSON.stringify({ ...JSON.parse(board), name: 'Bakery', loads: [{ name: readable, connection: 'A-N', kW: 2, pf: 1 }] }));
+    expect(r.code).toBe(0);
+    expect(JSON.parse(r.stdout).loads[0].name).toBe(readable);
   });
   it('are escaped in error messages on stderr', () => {
     const bad = JSON.stringify({ supply: { system: 'three-phase-4wire', voltage: { lineToLine: 400 }, frequencyHz: 50 }, loads: [], ['\u001b[2Jx']: 1 });

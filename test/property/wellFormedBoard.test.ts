@@ -43,6 +43,8 @@ const wordValues = [
   ...['ABC', 'ACB', 'CBA', 'switch-mode', 'en50160-supply', 'north-america', 'iec', 'A/B/C', 'L1/L2/L3'],
   // Text a tighter rule on names or notes would refuse: the shortcut must then refuse it too.
   ...[' ', '   ', ' a ', 'x'.repeat(101), 'x'.repeat(1001), 'a\u0000b', 'a\nb', '\u202e', 'é'.repeat(60)],
+  // Circuits' 24 characters at and past the end; a tab, an isolate, a C1 control, a separator.
+  ...['x'.repeat(24), 'x'.repeat(25), 'a\tb', '\u2066a\u2069', 'a\u0085', 'a\u2028b', 'שלום 東京'],
 ];
 const words = fc.constantFrom(...wordValues);
 const otherValues: unknown[] = [true, false, null, [], {}, { r: 0.1, x: 0.05 }, { kVA: 100, impedancePercent: 4, xOverR: 3 }, { A: { r: 0.1, x: 0.1 } }, { lineToNeutral: 230 }, 5, 'A-N'];

@@ -22,7 +22,7 @@ export type {
   ConnectionSpec,
   LoadModelName,
 } from './board/boardSchema.js';
-export { PHYSICAL_RANGES } from './board/boardSchema.js';
+export { CIRCUIT_MAX_CHARACTERS, NAME_MAX_CHARACTERS, PHYSICAL_RANGES } from './board/boardSchema.js';
 export { boardSchema } from './boardFile/boardFileSchema.js';
 export type { BoardValidation } from './boardFile/validateBoard.js';
 export { validateBoard, parseBoard } from './boardFile/validateBoard.js';

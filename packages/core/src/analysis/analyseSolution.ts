@@ -26,7 +26,13 @@ const PAIRS: Record<string, readonly [PhaseId, PhaseId][]> = {
   'single-phase': [],
 };
 
-const percentOf = (x: ComplexValue, base: ComplexValue) => (abs(base) === 0 ? 0 : (100 * abs(x)) / abs(base));
+/** |x|/|base| in %; magnitudes equal but for round-off (an A-B load alone: |I2| = |I1|) read exactly 100. */
+const percentOf = (x: ComplexValue, base: ComplexValue) => {
+  const b = abs(base);
+  if (b === 0) return 0;
+  const a = abs(x);
+  return Math.abs(a - b) <= SEQUENCE_VOLTAGE_RESOLUTION * b ? 100 : (100 * a) / b;
+};
 
 /** Voltages of the board's phase buses to the source star point, and what line-to-neutral loads see. */
 function boardVoltages(solution: Pick<NetworkSolution, 'board' | 'topology' | 'nodeVoltages'>) {
@@ -115,15 +121,18 @@ function readSequences(solution: NetworkSolution, phaseVoltages: readonly Comple
   const vs = voltageSequences(phaseVoltages, solution.board.sequence);
   const is = sequencesAbove(sequenceComponents(triple(solution.lineCurrents), solution.board.sequence), currentFloor);
   const asPhasors = (x: typeof vs) => ({ zero: toPhasor(x.zero), positive: toPhasor(x.positive), negative: toPhasor(x.negative) });
-  const lineRate = deviationFromAveragePercent(lineToLine.map((l) => l.voltage.magnitude));
+  // Magnitudes of a balanced set differ in their last bits: below the sequences' resolution (voltages)
+  // and the current noise floor (currents) a deviation is round-off, as |V2| and |I2| are.
+  const voltageDeviation = (ms: readonly number[]) => deviationFromAveragePercent(ms, SEQUENCE_VOLTAGE_RESOLUTION * Math.max(...ms));
+  const lineRate = voltageDeviation(lineToLine.map((l) => l.voltage.magnitude));
   const unbalance: UnbalanceReading = {
     voltageFactorPercent: percentOf(vs.negative, vs.positive),
     zeroSequenceVoltagePercent: percentOf(vs.zero, vs.positive),
     lineVoltageRatePercent: lineRate,
-    phaseVoltageRatePercent: deviationFromAveragePercent(phases.map((p) => p.voltage.magnitude)),
+    phaseVoltageRatePercent: voltageDeviation(phases.map((p) => p.voltage.magnitude)),
     currentNegativePercent: percentOf(is.negative, is.positive),
     currentZeroPercent: percentOf(is.zero, is.positive),
-    currentDeviationPercent: deviationFromAveragePercent(solution.lineCurrents.map(abs)),
+    currentDeviationPercent: deviationFromAveragePercent(solution.lineCurrents.map(abs), currentFloor),
     motorDeratingFactor: motorDeratingFactor(lineRate),
   };
   return { sequences: { voltage: asPhasors(vs), current: asPhasors(is) }, unbalance, V1: vs.positive, I1: is.positive };

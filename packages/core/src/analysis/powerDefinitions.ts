@@ -4,6 +4,7 @@
  * (Buchholz–Goodhue) and fundamental positive-sequence.
  */
 import { abs, type ComplexValue } from '../complex.js';
+import { powerParts } from './powerReading.js';
 
 export interface ApparentPowerReading {
   readonly kVA: number;
@@ -24,7 +25,25 @@ export interface BoardPowerDefinitions {
   readonly unbalancedKVA: number | null;
 }
 
-const reading = (p: number, s: number): ApparentPowerReading => ({ kVA: s / 1000, pf: s === 0 ? null : p / s });
+/**
+ * A power factor within this of ±1 is ±1: P/S of a board at unity comes out 1 ± a few 1e-16 (one
+ * in five purely resistive boards read above 1), and an angle of 1.4 µrad is no measurement.
+ */
+const UNITY_RESOLUTION = 1e-12;
+
+/** P/S held to [−1, 1], round-off next to ±1 read as ±1. */
+export function cleanPowerFactor(ratio: number): number {
+  return Math.abs(ratio) >= 1 - UNITY_RESOLUTION ? Math.sign(ratio) : ratio;
+}
+
+/**
+ * S_U1 below this fraction of Se is round-off: √(Se² − S1+²) of two equal figures is about
+ * √(4ε)·Se ≈ 3e-8·Se from their last bits alone (ε = 2.2e-16), 9e-7 kVA on a balanced 30 kW
+ * board; 1e-6 is some 30 times that and far below any meter (common practice, no source).
+ */
+const UNBALANCED_POWER_RESOLUTION = 1e-6;
+
+const reading = (p: number, s: number): ApparentPowerReading => ({ kVA: s / 1000, pf: s === 0 ? null : cleanPowerFactor(p / s) });
 
 /** Ve and Ie for a three-phase board (IEEE 1459; ρ = ξ = 1 on four wires). */
 export function effectiveQuantities(
@@ -69,8 +88,11 @@ export function boardPowerDefinitions(input: {
     const { V1, I1 } = input.sequence;
     const s1 = 3 * abs(V1) * abs(I1);
     const { p1, q1 } = positiveSequencePower(V1, I1);
-    positiveSequence = { ...reading(p1, s1), kW: p1 / 1000, kvar: q1 / 1000 };
-    unbalancedKVA = Math.sqrt(Math.max(0, se * se - s1 * s1)) / 1000;
+    // Q1+ of a board at unity is ±1e-13 kvar of round-off, its sign changing: read as the phases' are.
+    const { kW, kvar } = powerParts({ re: p1, im: q1 });
+    positiveSequence = { ...reading(p1, s1), kW, kvar };
+    const su1 = Math.sqrt(Math.max(0, se * se - s1 * s1));
+    unbalancedKVA = su1 <= UNBALANCED_POWER_RESOLUTION * se ? 0 : su1 / 1000;
   }
   return { arithmetic: reading(p, sA), vector: reading(p, sV), effective, positiveSequence, unbalancedKVA };
 }

@@ -16,7 +16,7 @@ export function powerReading(s: ComplexValue): PowerReading {
   if (kVA === 0) return { kW: s.re / 1000, kvar: s.im / 1000, kVA, pf: null, sense: 'none' };
   const { kW, kvar } = powerParts(s);
   const sense = kvar === 0 ? 'unity' : kvar > 0 ? 'lagging' : 'leading';
-  return { kW, kvar, kVA, pf: Math.abs(kW) / kVA, sense };
+  return { kW, kvar, kVA, pf: Math.min(1, Math.abs(kW) / kVA), sense };
 }
 
 /** P and Q of a complex power in VA as kW and kvar, a part within 1e-9 of S read as 0 (see `powerReading`). */

@@ -7,12 +7,14 @@ import { argumentIssueError, checkNumberArgument } from '../_internal/argumentCh
  * NEMA line-voltage unbalance rate (NEMA MG 1): the largest deviation of a
  * line-to-line voltage magnitude from their average, as % of the average. The
  * IEEE phase-voltage unbalance rate is the same formula on line-to-neutral magnitudes.
+ * @param noiseFloor a largest deviation at or below this (the magnitudes' unit) is round-off: 0 %
  * @example deviationFromAveragePercent([460, 467, 450]) //=> 1.96… (average 459 V, max deviation 9 V)
  */
-export function deviationFromAveragePercent(magnitudes: readonly number[]): number {
+export function deviationFromAveragePercent(magnitudes: readonly number[], noiseFloor = 0): number {
   const average = magnitudes.reduce((s, v) => s + v, 0) / magnitudes.length;
   if (average === 0) return 0;
-  return (100 * Math.max(...magnitudes.map((v) => Math.abs(v - average)))) / average;
+  const largest = Math.max(...magnitudes.map((v) => Math.abs(v - average)));
+  return largest <= noiseFloor ? 0 : (100 * largest) / average;
 }
 
 /**

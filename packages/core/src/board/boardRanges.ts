@@ -62,6 +62,17 @@ export const BREAKER_POLES = [1, 2, 3] as const;
 /** Longest voltage notation ("208Y/120") and AWG size ("4/0") read, in characters. */
 /** Longest board or circuit name: a name heads a table row and a box in the drawings. */
 export const NAME_MAX_CHARACTERS = 100;
+/** Longest circuit number or way ("L1-12", "3,5,7"): a cell of the panel schedule (common practice, no source). */
+export const CIRCUIT_MAX_CHARACTERS = 24;
+/**
+ * A name or circuit holds none of these: C0 and C1 controls (NUL, escape, tab, line breaks), DEL, the
+ * line and paragraph separators, and the bidirectional embeddings, overrides and isolates (U+202A–U+202E,
+ * U+2066–U+2069; Unicode UAX #9), which make a name print other than it is stored, in reports and errors.
+ */
+export const NAME_WITHOUT_CONTROLS = /^[^\u0000-\u001f\u007f-\u009f\u2028\u2029\u202a-\u202e\u2066-\u2069]*$/;
+export const NAME_CONTROLS_MESSAGE = 'text without control characters (NUL, tab, line breaks, escape) or direction overrides (U+202A–U+202E, U+2066–U+2069)';
+/** Some visible character (an empty text is the length check's to report). */
+export const NAME_VISIBLE = /^$|\S/;
 export const NOTATION_MAX_CHARS = 40;
 export const AWG_MAX_CHARS = 12;
 /** Conductors in parallel on one line or neutral. */

@@ -8,6 +8,9 @@ import type { BoardBaseSpec, ConductorSpec, FeederSpec, LoadBaseSpec, SupplySpec
 import { isThreePhase, phasesOf, systemHasNeutral } from './systemTopology.js';
 import { conductorResistance, tabulatedSizes } from './cableLibrary.js';
 import { readVoltageNotation } from './conventions/voltageNotation.js';
+import { nominalVoltagesOf } from './nominalVoltages.js';
+import { PHYSICAL_RANGES } from './boardRanges.js';
+import { groupDigits } from '../_internal/groupDigits.js';
 import { labellerOf, type PhaseLabeller, type PhaseNaming } from './conventions/phaseNames.js';
 import { isPerPhaseLine, lengthOf, materialOf, sizeOf } from './feederModel.js';
 import { conductorSizeHint } from './conductorSizeSpelling.js';
@@ -283,10 +286,40 @@ export function acceptedConnections(system: BoardBaseSpec['supply']['system']): 
 }
 
 /**
+ * A load in ohms is held to the same limit as one rated in kVA: its draw at nominal voltage,
+ * branches × V²/|Z|, at most PHYSICAL_RANGES.loadKVA. Without it 1e-12 ohm drew 5e13 kW, and a
+ * denormal resistance failed in the solve with an error about the result, not the file.
+ */
+function ohmsDrawIssues(load: LoadBaseSpec, ohms: { r: number; x: number }, path: string, voltages: { ln: number; ll: number | null }): InputIssue[] {
+  const threePhase = load.connection.startsWith('ABC');
+  const acrossLines = load.connection === 'ABC-delta' || (!threePhase && !load.connection.endsWith('-N'));
+  const v = acrossLines ? (voltages.ll ?? voltages.ln) : voltages.ln;
+  const branches = threePhase ? 3 : 1;
+  const z = Math.hypot(ohms.r, ohms.x);
+  const limitVA = PHYSICAL_RANGES.loadKVA.max * 1000;
+  if (!(v > 0) || (branches * v * v) / z <= limitVA) return [];
+  const smallest = (branches * v * v) / limitVA;
+  const figure = (x: number) => x.toPrecision(3);
+  // The least |Z| accepted, rounded up so that the figure printed is itself accepted.
+  const step = 10 ** (Math.floor(Math.log10(smallest)) - 2);
+  const roundedUp = (Math.ceil(smallest / step) * step).toPrecision(3);
+  return [
+    inputIssue(
+      'out_of_range',
+      `${path}.ohms`,
+      `an impedance drawing at most ${groupDigits(PHYSICAL_RANGES.loadKVA.max)} kVA at nominal voltage (${figure(v)} V across ${branches > 1 ? 'each of 3 branches' : 'it'}): |Z| at least ${roundedUp} ohm`,
+      `|Z| = ${figure(z)} ohm`,
+    ),
+  ];
+}
+
+/**
  * Load-by-load rules and duplicate names. `loads` may have holes where a load failed the schema
  * (forEach skips them, indices stay the file's); without a valid supply the connection check waits.
  */
-function loadIssues(loads: readonly (LoadBaseSpec | undefined)[], system: SystemKind | null, naming: PhaseNaming): InputIssue[] {
+function loadIssues(loads: readonly (LoadBaseSpec | undefined)[], supply: SupplySpec | null, naming: PhaseNaming): InputIssue[] {
+  const system = supply?.system ?? null;
+  const voltages = supply ? nominalVoltagesOf(supply) : null;
   const issues: InputIssue[] = [];
   const label = labellerOf(naming);
   const names = new Map<string, number>();
@@ -297,6 +330,7 @@ function loadIssues(loads: readonly (LoadBaseSpec | undefined)[], system: System
     if (system !== null) issues.push(...connectionIssues(load, path, system, label));
     if (load.ohms && load.ohms.r === 0 && load.ohms.x === 0)
       issues.push(inputIssue('out_of_range', `${path}.ohms`, 'a non-zero impedance (r = x = 0 is a short circuit)', 'r = 0, x = 0'));
+    else if (load.ohms && voltages) issues.push(...ohmsDrawIssues(load, load.ohms, path, voltages));
     const first = names.get(load.name);
     if (first !== undefined)
       issues.push(inputIssue('duplicate', `${path}.name`, `a name not already used (loads[${first}] has it)`, load.name));
@@ -306,7 +340,7 @@ function loadIssues(loads: readonly (LoadBaseSpec | undefined)[], system: System
 }
 
 function ruleLoads(board: BoardBaseSpec, naming: PhaseNaming): InputIssue[] {
-  return loadIssues(board.loads, board.supply.system, naming);
+  return loadIssues(board.loads, board.supply, naming);
 }
 
 /** The parts of a board that passed the schema on their own, when the whole did not. */
@@ -329,7 +363,7 @@ export function partialBoardIssues(parts: BoardParts, naming: PhaseNaming): Inpu
     issues.push(...ruleVoltageGiven(board), ...ruleSourceImpedance(board), ...ruleUnequalSource(board, naming), ...ruleEmfPhases(board, naming), ...ruleEmfSequence(board, naming));
     if (parts.feeder !== null) issues.push(...ruleFeeder(board, naming));
   }
-  issues.push(...loadIssues(parts.loads, parts.supply?.system ?? null, naming));
+  issues.push(...loadIssues(parts.loads, parts.supply, naming));
   return issues;
 }
 

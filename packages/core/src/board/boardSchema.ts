@@ -24,6 +24,10 @@ import {
   FREQUENCIES_HZ,
   LOAD_MODELS,
   NAME_MAX_CHARACTERS,
+  CIRCUIT_MAX_CHARACTERS,
+  NAME_CONTROLS_MESSAGE,
+  NAME_VISIBLE,
+  NAME_WITHOUT_CONTROLS,
   NOTATION_MAX_CHARS,
   PARALLEL_CONDUCTORS,
   PF_SENSES,
@@ -34,7 +38,7 @@ import {
   type PhysicalRange,
 } from './boardRanges.js';
 
-export { CONNECTIONS, LOAD_MODELS, NAME_MAX_CHARACTERS, PHYSICAL_RANGES, SYSTEMS };
+export { CIRCUIT_MAX_CHARACTERS, CONNECTIONS, LOAD_MODELS, NAME_MAX_CHARACTERS, PHYSICAL_RANGES, SYSTEMS };
 
 const nonNegative = z.number().nonnegative();
 
@@ -49,15 +53,18 @@ export function within(range: PhysicalRange): z.ZodNumber {
   return (above ? z.number().gt(min, { message: text }) : z.number().min(min, { message: text })).max(max, { message: text });
 }
 
-/** A board or circuit name: some visible text, short enough to head a table row. */
-export const nameSchema = (what: string) =>
+/** Text a person reads as written: some visible character, no controls or direction overrides, at most `maxCharacters`. */
+const readableText = (maxCharacters: number) =>
   z
     .string()
     .min(1)
-    .max(NAME_MAX_CHARACTERS)
+    .max(maxCharacters)
     // An empty name is min(1)'s to report; this catches names of spaces only.
-    .regex(/^$|\S/, { message: 'a name with at least one visible character' })
-    .describe(`${what} (at most ${NAME_MAX_CHARACTERS} characters)`);
+    .regex(NAME_VISIBLE, { message: 'a name with at least one visible character' })
+    .regex(NAME_WITHOUT_CONTROLS, { message: NAME_CONTROLS_MESSAGE });
+
+/** A board, installation or circuit name: some visible text, short enough to head a table row. */
+export const nameSchema = (what: string) => readableText(NAME_MAX_CHARACTERS).describe(`${what} (at most ${NAME_MAX_CHARACTERS} characters)`);
 
 const impedanceOf = (r: PhysicalRange, x: PhysicalRange) =>
   z
@@ -174,7 +181,9 @@ export const feederSchema = z
 
 export const loadSchema = z.strictObject({
   name: nameSchema('circuit name'),
-  circuit: z.string().min(1).optional().describe('circuit number or way on the board, for the panel schedule (default: position in the list)'),
+  circuit: readableText(CIRCUIT_MAX_CHARACTERS)
+    .optional()
+    .describe(`circuit number or way on the board, for the panel schedule (default: position in the list; at most ${CIRCUIT_MAX_CHARACTERS} characters)`),
   breakerA: within(PHYSICAL_RANGES.ratingA).optional().describe('rated current of the circuit breaker or fuse, A (shown in the panel schedule)'),
   poles: z
     .literal(BREAKER_POLES)
@@ -197,7 +206,7 @@ export const loadSchema = z.strictObject({
   A: within(PHYSICAL_RANGES.loadA).optional().describe('current at nominal voltage, A (line current for three-phase loads)'),
   pf: within(PHYSICAL_RANGES.pf).optional().describe('displacement power factor, 0.01 <= pf <= 1'),
   sense: z.enum(PF_SENSES).optional().describe('whether pf is lagging (inductive, default) or leading'),
-  ohms: loadImpedanceSchema.optional().describe('impedance per phase (star) or per branch (delta), ohm'),
+  ohms: loadImpedanceSchema.optional().describe('impedance per phase (star) or per branch (delta), ohm; its draw at nominal voltage (branches × V²/|Z|) at most the kVA limit of a load, 100,000 kVA'),
   model: z.enum(LOAD_MODELS).optional().describe('voltage dependence; default constant-power, constant-impedance for ohms'),
   zip: z
     .strictObject({ z: nonNegative.max(1), i: nonNegative.max(1), p: nonNegative.max(1) })
@@ -228,7 +237,7 @@ export function boardSchemaWith<L extends z.ZodRawShape, S extends z.ZodRawShape
   return z
     .strictObject({
       $schema: z.string().optional(),
-      name: z.string().min(1).optional().describe('board name'),
+      name: nameSchema('board name').optional(),
       note: z.string().optional().describe('free text'),
       supply: supplySchema,
       conventions: conventionsSchema.optional(),

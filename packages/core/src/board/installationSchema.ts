@@ -29,7 +29,7 @@ export function installationSchemaWith<L extends z.ZodRawShape, S extends z.ZodR
   return z
     .strictObject({
       $schema: z.string().optional(),
-      name: z.string().min(1).optional().describe('installation name'),
+      name: nameSchema('installation name').optional(),
       note: z.string().optional().describe('free text'),
       supply: supplySchema,
       conventions: conventionsSchema.optional(),

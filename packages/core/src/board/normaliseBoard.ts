@@ -7,7 +7,7 @@ import type { BoardBaseSpec, LoadBaseSpec, WindingSpec } from './boardSchema.js'
 import { feederModel } from './feederModel.js';
 import type { Board, BoardLoad, LoadBranch, SourceUnit, Terminal, ZipFractions } from './boardModel.js';
 import { phasesOf, systemHasNeutral, type PhaseId } from './systemTopology.js';
-import { nominalOfNotation, readVoltageNotation } from './conventions/voltageNotation.js';
+import { nominalVoltagesOf } from './nominalVoltages.js';
 import { resolveConventions } from './conventions/boardConventions.js';
 import { assertNormalisableBoard } from './normalisableSpec.js';
 
@@ -24,17 +24,7 @@ export function balancedAnglesDeg(system: BoardBaseSpec['supply']['system'], seq
   return sequence === 'ABC' ? [0, -120, 120] : [0, 120, -120];
 }
 
-function nominalVoltages(spec: BoardBaseSpec): { ln: number; ll: number | null } {
-  const voltage = spec.supply.voltage;
-  const written = voltage.written !== undefined ? readVoltageNotation(voltage.written, spec.supply.system) : null;
-  if (written?.ok) return nominalOfNotation(written.notation, spec.supply.system);
-  const { lineToLine, lineToNeutral } = voltage;
-  const ratio = spec.supply.system === 'split-phase' ? 2 : Math.sqrt(3);
-  if (spec.supply.system === 'single-phase') return { ln: lineToNeutral ?? Number.NaN, ll: null };
-  if (lineToNeutral !== undefined) return { ln: lineToNeutral, ll: lineToNeutral * ratio };
-  const ll = lineToLine ?? Number.NaN;
-  return { ln: ll / ratio, ll };
-}
+const nominalVoltages = (spec: BoardBaseSpec) => nominalVoltagesOf(spec.supply);
 
 /** Impedance of a transformer (or one single-phase unit) referred to `v` volts: |Z| = u_k·V²/S, split by X/R. */
 function transformerImpedance(unit: { kVA: number; impedancePercent: number; xOverR: number }, v: number): ComplexValue {

@@ -22,6 +22,9 @@ import {
   FREQUENCIES_HZ,
   LOAD_MODELS,
   NAME_MAX_CHARACTERS,
+  CIRCUIT_MAX_CHARACTERS,
+  NAME_VISIBLE,
+  NAME_WITHOUT_CONTROLS,
   NOTATION_MAX_CHARS,
   PARALLEL_CONDUCTORS,
   PF_SENSES,
@@ -102,14 +105,17 @@ const feeder = strictObjectOf({
 });
 
 const fraction = numberIn(0, 1);
-/** boardSchema's nameSchema: 1 to NAME_MAX_CHARACTERS characters, at least one of them visible. */
-const nameText: PlainShape = (v) => {
-  const text = textOf(1, NAME_MAX_CHARACTERS)(v);
-  return text !== NOT_THIS_SHAPE && /\S/.test(text as string) ? text : NOT_THIS_SHAPE;
-};
+/** boardSchema's readable text: 1 to `maxCharacters` characters, at least one of them visible, no controls or direction overrides. */
+const readableText =
+  (maxCharacters: number): PlainShape =>
+  (v) => {
+    const text = textOf(1, maxCharacters)(v);
+    return text !== NOT_THIS_SHAPE && NAME_VISIBLE.test(text as string) && NAME_WITHOUT_CONTROLS.test(text as string) ? text : NOT_THIS_SHAPE;
+  };
+const nameText = readableText(NAME_MAX_CHARACTERS);
 const load = strictObjectOf({
   name: required(nameText),
-  circuit: optional(textOf(1)),
+  circuit: optional(readableText(CIRCUIT_MAX_CHARACTERS)),
   breakerA: optional(within(R.ratingA)),
   poles: optional(oneOf(BREAKER_POLES)),
   continuous: optional(trueOrFalse),
@@ -135,7 +141,7 @@ const conventions = strictObjectOf({
 
 const board = strictObjectOf({
   $schema: optional(textOf()),
-  name: optional(textOf(1)),
+  name: optional(nameText),
   note: optional(textOf()),
   supply: required(supply),
   conventions: optional(conventions),

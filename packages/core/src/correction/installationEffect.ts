@@ -171,7 +171,7 @@ const sumOf = (r: BoardResult, key: 'kW' | 'kvar') => r.phases.reduce((s, p) => 
 
 function supplyEffect(before: InstallationResult, after: InstallationResult): SupplyEffect {
   const kva = (r: InstallationResult) => Math.hypot(r.totals.sourceKW, r.totals.sourceKvar);
-  const pf = (r: InstallationResult) => (kva(r) > 0 ? Math.abs(r.totals.sourceKW) / kva(r) : 1);
+  const pf = (r: InstallationResult) => (kva(r) > 0 ? Math.min(1, Math.abs(r.totals.sourceKW) / kva(r)) : 1);
   const tb = before.boards[0]!.result.transformer;
   const ta = after.boards[0]!.result.transformer;
   return {

@@ -27,6 +27,12 @@ export const NEUTRAL_PRACTICE_SINGLE_PHASE = 'on a single-phase board the neutra
 export const neutralPractice = (system: string): string =>
   system === 'split-phase' ? NEUTRAL_PRACTICE_SPLIT_PHASE : system === 'single-phase' ? NEUTRAL_PRACTICE_SINGLE_PHASE : NEUTRAL_PRACTICE;
 
+export const harmonicsWording = {
+  /** The point-of-common-coupling check asked for on a source with no impedance to give the ratio. */
+  noShortCircuitRatio:
+    'current distortion at the point of common coupling not judged: the source impedance is zero or below 1 µΩ (an ideal source), so the short-circuit ratio has no finite value; give harmonics.pcc.shortCircuitRatio to judge it against IEEE 519',
+} as const;
+
 export const harmonicsWarningText = {
   neutralOverload: (rms: number, rating: number) =>
     `the neutral carries ${rms.toFixed(1)} A rms including harmonics, above its ${rating.toFixed(0)} A rating: it overheats without tripping anything (no overcurrent device protects a neutral)`,

@@ -5,6 +5,8 @@
  * the odd limits (1992/2014) [confirmed].
  */
 
+import { InputError, inputIssue } from '../errors.js';
+
 interface Row {
   readonly label: string;
   /** Upper end of the short-circuit ratio band (exclusive). */
@@ -33,7 +35,11 @@ export const IEEE_519_VOLTAGE_LIMITS = { individualPercent: 5, thdPercent: 8 } a
 
 export const IEEE_519_VOLTAGE_SOURCE = 'IEEE 519-2014 Table 1, bus voltage ≤ 1.0 kV: 5 % individual harmonic, 8 % THD';
 
-const rowOf = (ratio: number): Row => ROWS.find((r) => ratio < r.below)!;
+/** The row a ratio falls in; an infinite ratio (an ideal source) in the last, which has no upper end. */
+function rowOf(ratio: number): Row {
+  if (!(ratio > 0)) throw new InputError([inputIssue('out_of_range', 'shortCircuitRatio', 'a short-circuit ratio I_sc/I_L above 0', ratio)], 'the IEEE 519 row cannot be found');
+  return ROWS.find((r) => ratio < r.below) ?? ROWS[ROWS.length - 1]!;
+}
 
 /** The table row for a short-circuit ratio. */
 export function ieee519Row(shortCircuitRatio: number): { label: string; tddPercent: number } {

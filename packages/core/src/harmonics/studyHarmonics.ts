@@ -12,6 +12,7 @@ import { abs, add } from '../complex.js';
 import { InputError, inputIssue } from '../errors.js';
 import { compileBoard, solveCompiledBoard, solveNetwork, type NetworkSolution, type SolveOptions } from '../network/solveNetwork.js';
 import { CompiledNetworkCache } from '../network/compiledNetworkCache.js';
+import { NEGLIGIBLE_OHMS } from '../network/installationCircuit.js';
 import { addInstalledBank, installedBankLayout, ordersPresent, resolveHarmonicModel, stateKey, type BankModel, type HarmonicModel } from './harmonicModel.js';
 import { solveAtOrder } from './networkAtOrder.js';
 import { readLines, readLineToLine, readNeutral, type OrderSolution } from './readHarmonics.js';
@@ -22,7 +23,7 @@ import { IEEE_519_SOURCE, ieee519OrderLimit, ieee519Row } from './ieee519.js';
 import { checkVoltageDistortion } from './voltageDistortion.js';
 import { HARMONICS_DEFAULTS } from './harmonicsDefaults.js';
 import type { HarmonicsBoardSpec } from './harmonicsSpec.js';
-import { harmonicsCautions, harmonicsWarningText, neutralPractice } from './harmonicsWording.js';
+import { harmonicsCautions, harmonicsWarningText, harmonicsWording, neutralPractice } from './harmonicsWording.js';
 import type { CapacitorDuty, DutyCase, DutyCondition, HarmonicLineReading, HarmonicsReport, HarmonicsWarning, NeutralCheck, ResonanceScan, TddCheck, VoltageDistortionCheck } from './harmonicsResult.js';
 import { conventionsOf } from '../board/conventions/boardConventions.js';
 import { regionWords } from '../board/conventions/regionWords.js';
@@ -84,7 +85,8 @@ export function tddCheck(board: Board, model: HarmonicModel, lines: readonly Har
   if (!model.pcc) return null;
   const demand = model.pcc.demandCurrentA ?? Math.max(...lines.map((l) => l.current.fundamental));
   const zSource = abs(add(board.sourceImpedance, board.lineImpedance));
-  const ratio = model.pcc.shortCircuitRatio ?? (zSource > 0 && demand > 0 ? board.nominalLineToNeutralV / zSource / demand : null);
+  // Below NEGLIGIBLE_OHMS the circuit merges the source as a direct connection: no ratio from it, as for an ideal source.
+  const ratio = model.pcc.shortCircuitRatio ?? (zSource >= NEGLIGIBLE_OHMS && demand > 0 ? board.nominalLineToNeutralV / zSource / demand : null);
   if (ratio === null || !(demand > 0)) return null;
   const row = ieee519Row(ratio);
   const tddLines = lines.map((l) => {
@@ -215,6 +217,9 @@ export function assumptions(board: Board, model: HarmonicModel, otherBanks = fal
         ]
       : []),
     model.background.length ? 'background supply distortion at each phase with h × the phase angle of its EMF' : 'no background supply distortion (the supply EMF is sinusoidal)',
+    ...(model.pcc && model.pcc.shortCircuitRatio === null && !(abs(add(board.sourceImpedance, board.lineImpedance)) >= NEGLIGIBLE_OHMS)
+      ? [harmonicsWording.noShortCircuitRatio]
+      : []),
   ];
 }
 

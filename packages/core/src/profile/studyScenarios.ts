@@ -109,7 +109,7 @@ export function readBoardScenarios(board: Board, figures: IntervalFigures, scena
       unbalancePercent: board.phases.length === 3 ? figures.unbalancePercent[k]! : null,
       kW: w / 1000,
       kvar: q / 1000,
-      pf: Math.hypot(w, q) === 0 ? null : Math.abs(w) / Math.hypot(w, q),
+      pf: Math.hypot(w, q) === 0 ? null : Math.min(1, Math.abs(w) / Math.hypot(w, q)),
     };
   });
   const kWhImport = readings.reduce((a, r) => a + Math.max(r.kW, 0) * r.hours, 0);

@@ -7,6 +7,7 @@ import type { BoardResult } from '../../analysis/boardResult.js';
 import { capacitanceUF, inductanceMH } from '../capacitorOutput.js';
 import type { EquipmentGroup } from '../equipment.js';
 import type { BeforeAfter, BranchSizing, LineComparison, PfBeforeAfter } from '../correctionResult.js';
+import { NOISE_FLOOR_RELATIVE } from '../../analysis/noiseFloor.js';
 
 /**
  * A branch below this fraction of the whole set's kvar (or below 1e-9 kvar)
@@ -19,10 +20,16 @@ const EMPTY_KVAR = 1e-9;
 /** The output below which a branch of a set of `totalKvar` reads as empty (element `none`). */
 export const emptyBelowKvar = (totalKvar: number): number => Math.max(EMPTY_KVAR, EMPTY_FRACTION * totalKvar);
 
-export const beforeAfter = (before: number, after: number): BeforeAfter => ({ before, after, change: after - before });
+/** after − before, a difference within the noise floor of the larger (two equal figures' last bits, 1e-13 kW) read as 0. */
+const changeOf = (before: number, after: number): number => {
+  const change = after - before;
+  return Math.abs(change) <= NOISE_FLOOR_RELATIVE * Math.max(Math.abs(before), Math.abs(after)) ? 0 : change;
+};
+
+export const beforeAfter = (before: number, after: number): BeforeAfter => ({ before, after, change: changeOf(before, after) });
 
 /** PF before and after; null on a side where the line carries no current (no PF). */
-export const pfBeforeAfter = (before: number | null, after: number | null): PfBeforeAfter => ({ before, after, change: before === null || after === null ? null : after - before });
+export const pfBeforeAfter = (before: number | null, after: number | null): PfBeforeAfter => ({ before, after, change: before === null || after === null ? null : changeOf(before, after) });
 
 /**
  * Each branch of `groups` (added last to `board`, in order) as solved in `result`.

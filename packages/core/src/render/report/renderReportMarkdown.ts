@@ -9,12 +9,20 @@ export interface MarkdownReport {
 }
 
 /**
- * Markdown special characters in table cells and text that would change the layout. Angle brackets
- * in both: a renderer passes raw HTML through, in a table cell as anywhere (a circuit named
- * `<img onerror=…>` must print as text, not run).
+ * Every character Markdown (CommonMark with the GitHub extensions) acts on inside a line, escaped
+ * with a backslash wherever the report writes text, table cells and prose alike: names come from the
+ * file, and a load named `![t](https://…)` must print as text, not fetch a remote image, nor
+ * `[x](javascript:…)` make a link. [ ] ! make links and images; * _ ` ~ emphasis, code and
+ * strike-through; < > raw HTML and autolinks (a renderer passes HTML through, in a table cell as
+ * anywhere); & entities; # headings; $ maths on renderers that have it; \ itself.
+ * ( ) are not active without a [ ] before them; - + = and "1." only at a line's start: escaped there in
+ * a paragraph, the one block whose text starts a line.
  */
-const cell = (text: string): string => visibleControls(text.replace(/([\\|<>])/g, '\\$1'));
-const text = (t: string): string => visibleControls(t.replace(/([\\`*_[\]<>])/g, '\\$1'));
+const MARKDOWN_ACTIVE = /[\\`*_[\]!<>&#~$]/g;
+const escapeMarkdown = (t: string): string => visibleControls(t.replace(MARKDOWN_ACTIVE, '\\$&'));
+/** In a table cell | also ends the cell; elsewhere (one-line blocks, no table around) it is text. */
+const escapeCell = (t: string): string => escapeMarkdown(t).replace(/\|/g, '\\|');
+const escapeParagraph = (t: string): string => escapeMarkdown(t).replace(/^([-+=])/, '\\$1').replace(/^(\d+)([.)])/, '$1\\$2');
 
 /**
  * Renders a report as Markdown.
@@ -25,26 +33,26 @@ export function renderReportMarkdown(doc: ReportDocument, figurePrefix: string):
   const block = (b: ReportBlock): string => {
     switch (b.kind) {
       case 'paragraph':
-        return text(b.text);
+        return escapeParagraph(b.text);
       case 'facts':
-        return b.items.map(([k, v]) => `- **${text(k)}:** ${text(v)}`).join('\n');
+        return b.items.map(([k, v]) => `- **${escapeMarkdown(k)}:** ${escapeMarkdown(v)}`).join('\n');
       case 'table': {
-        const head = `| ${b.columns.map((c) => cell(c.label)).join(' | ')} |`;
+        const head = `| ${b.columns.map((c) => escapeCell(c.label)).join(' | ')} |`;
         const rule = `| ${b.columns.map((c) => (c.align === 'right' ? '---:' : ':---')).join(' | ')} |`;
-        const rows = b.rows.map((r) => `| ${r.map(cell).join(' | ')} |`);
-        return [`**${text(b.caption)}**`, '', head, rule, ...rows, ...(b.note ? ['', `_${text(b.note)}_`] : [])].join('\n');
+        const rows = b.rows.map((r) => `| ${r.map(escapeCell).join(' | ')} |`);
+        return [`**${escapeMarkdown(b.caption)}**`, '', head, rule, ...rows, ...(b.note ? ['', `_${escapeMarkdown(b.note)}_`] : [])].join('\n');
       }
       case 'figure': {
         const name = `${figurePrefix}-${b.name}.svg`;
         files.push({ name, content: b.svg });
-        return `![${cell(b.caption)}](${encodeURI(name)})`;
+        return `![${escapeMarkdown(b.caption)}](${encodeURI(name)})`;
       }
       case 'list': {
         const mark = b.tone === 'caution' ? '**Caution:** ' : b.tone === 'warning' ? '**Warning:** ' : '';
-        return b.items.map((i) => `- ${mark}${text(i)}`).join('\n');
+        return b.items.map((i) => `- ${mark}${escapeMarkdown(i)}`).join('\n');
       }
     }
   };
-  const body = doc.sections.map((s) => `## ${text(s.title)}\n\n${s.blocks.map(block).join('\n\n')}`).join('\n\n');
-  return { markdown: `# ${text(doc.title)}\n\n${text(doc.subtitle)}\n\n${body}\n`, files };
+  const body = doc.sections.map((s) => `## ${escapeMarkdown(s.title)}\n\n${s.blocks.map(block).join('\n\n')}`).join('\n\n');
+  return { markdown: `# ${escapeMarkdown(doc.title)}\n\n${escapeMarkdown(doc.subtitle)}\n\n${body}\n`, files };
 }
