@@ -177,11 +177,21 @@ export function boardWarnings(input: {
   if (input.region === 'north-america')
     for (const m of circuitNumberMismatches(loads, phases.length)) {
       const rotation = phases.map((p) => label(p.phase)).join(', ');
-      const where = m.implied.length > 1 ? m.implied.map(label).join('-') : `phase ${label(m.implied[0]!)}`;
+      const numbering = `the usual panel numbering (odd circuits down the left, even down the right, phases ${rotation} by row)`;
+      // As the file wrote it: every position where it listed them, else the first.
+      const written = m.with.length ? String(m.circuit) : m.positions.join(',');
+      const stacked = Array.from({ length: m.poles }, (_, k) => m.circuit + 2 * k);
+      const column = m.poles === 1 ? `${m.circuit} alone for a 1-pole breaker` : `${stacked.slice(0, -1).join(', ')} and ${stacked.at(-1)} for a ${m.poles}-pole breaker at ${m.circuit}`;
+      const message =
+        m.kind === 'pole-count'
+          ? `load "${m.name}" on circuit ${written} has a ${m.poles}-pole breaker, but the circuit names ${m.positions.length} positions: a breaker takes one position per pole (${column}); check the schedule or the poles`
+          : m.kind === 'not-stacked'
+            ? `load "${m.name}" on circuit ${written}: the poles of one breaker sit one above the other in a column (${column}), not at ${written}; check the schedule`
+          : `load "${m.name}" on circuit ${written} is written ${label(m.connection)}, but ${numbering} puts circuit ${written}${m.with.length ? ` (with ${m.with.join(' and ')})` : ''} on ${m.implied.length > 1 ? m.implied.map(label).join('-') : `phase ${label(m.implied[0]!)}`}: check the schedule or the connection`;
       out.push({
-        code: 'circuit-number-phase',
-        message: `load "${m.name}" on circuit ${m.circuit} is written ${label(m.connection)}, but the usual panel numbering (odd circuits down the left, even down the right, phases ${rotation} by row) puts circuit ${m.circuit}${m.with.length ? ` (with ${m.with.join(' and ')})` : ''} on ${where}: check the schedule or the connection`,
-        // The circuit number, and the number of phases the numbering rotates through.
+        code: m.kind === 'phases' ? 'circuit-number-phase' : 'circuit-number-poles',
+        message,
+        // The first position, and the number of phases the numbering rotates through.
         value: m.circuit,
         threshold: phases.length,
       });
