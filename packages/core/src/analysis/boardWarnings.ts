@@ -153,22 +153,27 @@ export function boardWarnings(input: {
         });
     }
   // A circuit drawing more than its breaker allows: the schedule would show the two side by side.
+  // A circuit that generates (negative kW, PV or a generator) is judged by the output-circuit rule, not the load rule.
   for (const load of loads) {
     if (load.breakerA === null || !load.energised) continue;
     const rating = +load.breakerA.toFixed(1);
-    const rule = breakerRule(input.region ?? 'iec', load.continuous);
+    const generates = load.kW < 0;
+    const rule = generates ? outputCircuitRule(input.region ?? 'iec') : breakerRule(input.region ?? 'iec', load.continuous);
     const allowed = load.breakerA * rule.share;
+    const flows = generates ? 'feeds back' : 'draws';
     if (load.currentA > load.breakerA)
       out.push({
         code: 'circuit-over-breaker',
-        message: `circuit "${load.name}" draws ${above(load.currentA, load.breakerA)} A, above its ${rating} A breaker (${rule.words}): the circuit is overloaded; a small overload can run for hours before a breaker trips, heating the cable meanwhile; check the load and the rating in the file`,
+        message: generates
+          ? `circuit "${load.name}" feeds back ${above(load.currentA, load.breakerA)} A, above its ${rating} A breaker (${rule.words}): the breaker and conductors are too small for what the source sends back, or its output in the file is too high; check the source's rated output current and the breaker`
+          : `circuit "${load.name}" draws ${above(load.currentA, load.breakerA)} A, above its ${rating} A breaker (${rule.words}): the circuit is overloaded; a small overload can run for hours before a breaker trips, heating the cable meanwhile; check the load and the rating in the file`,
         value: load.currentA,
         threshold: load.breakerA,
       });
     else if (load.currentA > allowed)
       out.push({
-        code: 'continuous-load-over-breaker-share',
-        message: `circuit "${load.name}" draws ${fmt(load.currentA)} A, above ${fmt(allowed)} A, ${fmt(rule.share * 100, 0)} % of its ${rating} A breaker (${rule.words}): give it a larger breaker and conductors, or mark it continuous: false if it never runs 3 h at a time`,
+        code: generates ? 'output-circuit-over-breaker-share' : 'continuous-load-over-breaker-share',
+        message: `circuit "${load.name}" ${flows} ${fmt(load.currentA)} A, above ${fmt(allowed)} A, ${fmt(rule.share * 100, 0)} % of its ${rating} A breaker (${rule.words}): give it a larger breaker and conductors${generates ? '' : ', or mark it continuous: false if it never runs 3 h at a time'}`,
         value: load.currentA,
         threshold: allowed,
       });
@@ -238,6 +243,21 @@ function breakerRule(region: Region, continuous: boolean): { share: number; word
   return {
     share: WARNING_THRESHOLDS.continuousBreakerShare,
     words: 'NEC 210.20(A): a continuous load — one that may run 3 h or more, as every load is taken unless marked continuous: false — at most 80 % of the rating, unless the breaker is listed for 100 % duty',
+  };
+}
+
+/**
+ * The rule for a circuit that generates. North America: a source's output circuit carries its continuous
+ * output current, and its breaker and conductors are sized at 125 % of it (NEC 705.28 and 705.30 for
+ * interconnected sources, 690.8(A)/(B) for PV: from memory), whatever `continuous` says. IEC: the
+ * design current, the source's rated output current, at most the device's rated current I_n
+ * (IEC 60364-4-43, 433.1, as for a load; from memory).
+ */
+function outputCircuitRule(region: Region): { share: number; words: string } {
+  if (region !== 'north-america') return { share: 1, words: "IEC 60364-4-43: a source's output current at most the rated current I_n" };
+  return {
+    share: WARNING_THRESHOLDS.continuousBreakerShare,
+    words: "a generating circuit: NEC 705.28/705.30 (690.8 for PV), from memory: breaker and conductors at 125 % of the source's continuous output current, so at most 80 % of the rating",
   };
 }
 
