@@ -84,25 +84,40 @@ export function boardWarnings(input: {
   // A reduced neutral with no rating given: judged by heat per metre against the heaviest phase's
   // conductor (I²R, same cable and surroundings), which that phase's breaker limits. Above it the
   // neutral runs hotter than any protected conductor (common practice, no source). A full-size
-  // neutral reduces to the rule above.
+  // neutral reduces to the rule above. On a single-phase board the neutral carries the line current
+  // itself: the line breaker limits it, but that breaker is chosen for the line conductor, and the
+  // rules ask for a neutral of the line's size there (below), whatever it carries.
   const feeder = input.feederResistance;
   const heaviestIndex = heaviest ? phases.indexOf(heaviest) : -1;
   const rLine = feeder && heaviestIndex >= 0 ? (feeder.lines[heaviestIndex] ?? 0) : 0;
-  if (
-    heaviest &&
-    neutral &&
-    feeder &&
-    neutral.ratingA == null &&
-    rLine > 0 &&
-    feeder.neutral > rLine * (1 + ROUND_OFF_MARGIN) &&
-    neutral.current.magnitude <= largest * (1 + ROUND_OFF_MARGIN) &&
-    neutral.current.magnitude ** 2 * feeder.neutral > largest ** 2 * rLine * (1 + ROUND_OFF_MARGIN)
+  const reduced = Boolean(heaviest && neutral && feeder && rLine > 0 && feeder.neutral > rLine * (1 + ROUND_OFF_MARGIN));
+  if (reduced && phases.length === 1) {
+    const ratio = feeder!.neutral / rLine;
+    const rule =
+      input.region === 'north-america'
+        ? "the neutral of a two-wire circuit needs the line conductor's ampacity; the NEC lets a neutral be smaller only where it carries the unbalance of a multiwire feeder or service (220.61, from memory)"
+        : "IEC 60364-5-52 asks for a neutral of the line conductor's cross-section on single-phase two-wire circuits, whatever the size (524.2.1, from memory)";
+    out.push({
+      code: 'neutral-reduced-single-phase',
+      message: `the neutral of this single-phase feeder is reduced (${fmt(ratio, 2)} × the line conductor's resistance): on two wires it carries the whole line current, ${amps(neutral!.current.magnitude)} A now, up to what the line's breaker, chosen for the line conductor, lets through; ${rule}: give it the line's size`,
+      value: ratio,
+      threshold: 1,
+    });
+  } else if (
+    reduced &&
+    neutral!.ratingA == null &&
+    neutral!.current.magnitude <= largest * (1 + ROUND_OFF_MARGIN) &&
+    neutral!.current.magnitude ** 2 * feeder!.neutral > largest ** 2 * rLine * (1 + ROUND_OFF_MARGIN)
   )
     out.push({
       code: 'neutral-reduced-heating',
-      message: `the reduced neutral (${fmt(feeder.neutral / rLine, 2)} × a line conductor's resistance) carries ${amps(neutral.current.magnitude)} A: it heats more per metre than the heaviest phase (${label(heaviest.phase)}, ${amps(largest)} A), which its breaker limits, and nothing limits it; give the neutral's ratingA to judge it`,
-      value: neutral.current.magnitude,
-      threshold: largest * Math.sqrt(rLine / feeder.neutral),
+      message: `the reduced neutral (${fmt(feeder!.neutral / rLine, 2)} × a line conductor's resistance) carries ${amps(neutral!.current.magnitude)} A: it heats more per metre than the heaviest phase (${label(heaviest!.phase)}, ${amps(largest)} A), which its breaker limits, and nothing limits it; ${
+        phases.length === 2 && input.region === 'north-america'
+          ? "a 120/240 feeder's neutral may be smaller than its lines only where sized for the largest unbalanced load (NEC 220.61) at its ampacity (NEC 310.16; both from memory); "
+          : ''
+      }give the neutral's ratingA to judge it`,
+      value: neutral!.current.magnitude,
+      threshold: largest * Math.sqrt(rLine / feeder!.neutral),
     });
   if (neutral?.ratingA != null && neutral.current.magnitude > neutral.ratingA)
     out.push({
