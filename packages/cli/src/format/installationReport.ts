@@ -43,7 +43,7 @@ function boardTable(r: InstallationResult): string {
       treeName(b.name, b.depth),
       fixed(Math.min(...percents), 1),
       fixed(Math.max(...percents), 1),
-      res.neutral ? fixed(res.neutral.current.magnitude, 1) : '',
+      res.neutral ? fixed(res.neutral.current.magnitude, 1) : res.board.withoutNeutral ? '-' : '',
       res.unbalance ? fixed(res.unbalance.voltageFactorPercent, 2) : '',
       fixed(res.totals.kW, 2),
       fixed(res.totals.kvar, 2),
@@ -71,15 +71,16 @@ function boardTable(r: InstallationResult): string {
 
 function feederTable(r: InstallationResult): string {
   const phases = r.feeders[0]?.lines.map((l) => l.phase) ?? [];
+  const hasNeutral = r.feeders[0]?.neutral !== null;
   const rows = r.feeders.map((f) => [
     f.board,
     f.from ?? 'supply',
     ...f.lines.map((l) => fixed(l.current.magnitude, 1)),
-    ...(f.neutral ? [f.neutral.open ? 'open' : fixed(f.neutral.current.magnitude, 1)] : []),
+    // A feeder of line conductors only, on a system with a neutral: '-', no conductor to read.
+    ...(hasNeutral ? [f.neutral ? (f.neutral.open ? 'open' : fixed(f.neutral.current.magnitude, 1)) : '-'] : []),
     fixed(f.voltageDropPercent, 2),
     fixed(f.lossesKW, 3),
   ]);
-  const hasNeutral = r.feeders[0]?.neutral !== null;
   return renderTable(
     [
       { header: 'to', align: 'left' },

@@ -37,6 +37,12 @@ export function voltageVerdictLine(r: BoardResult): string {
   return `limits ${bandWords(c.limits)} (${c.limits.preset}): ${verdict}; lowest ${fixed(c.lowest.percent, 1)} % at ${c.lowest.at}, highest ${fixed(c.highest.percent, 1)} % at ${c.highest.at}`;
 }
 
+/** The board's system; a board no neutral reaches says so, whatever the supply's system. */
+function systemWords(b: BoardResult['board']): string {
+  if (!b.withoutNeutral) return SYSTEM_WORDS[b.system] ?? b.system;
+  return `${b.system === 'split-phase' ? 'split-phase, two lines' : 'three-phase 3-wire'}, no neutral at this board`;
+}
+
 export function headerLines(r: BoardResult): string[] {
   const b = r.board;
   const label = labeller(r);
@@ -46,7 +52,7 @@ export function headerLines(r: BoardResult): string[] {
   const seq = b.system.startsWith('three') ? ` · sequence ${label(b.sequence)}` : '';
   return [
     wrapText(b.name, ''),
-    `${SYSTEM_WORDS[b.system] ?? b.system} · ${volts} · ${b.frequencyHz} Hz${seq}${b.neutralOpen ? ' · NEUTRAL OPEN' : ''}`,
+    `${systemWords(b)} · ${volts} · ${b.frequencyHz} Hz${seq}${b.neutralOpen ? ' · NEUTRAL OPEN' : ''}`,
   ];
 }
 

@@ -249,7 +249,7 @@ export function analyseSolution(solved: NetworkSolution): BoardResult {
   const label = (term: string) => labelIn(conventions.phaseNames, term);
   const limits = conventions.voltageLimits;
   const feederResistance = board.hasNeutral ? { lines: (board.lineImpedances ?? board.phases.map(() => board.lineImpedance)).map((z) => z.re), neutral: board.neutralImpedance.re } : null;
-  const warnings = boardWarnings({ belowThreshold, phases, neutral, unbalance, loads, lineRatingsA: board.phases.map((_, k) => lineRatingOf(board, k)), transformer, sourceUnits, limits, label, lineToLine, hasNeutral: board.hasNeutral, region: conventions.region, feederResistance });
+  const warnings = boardWarnings({ belowThreshold, phases, neutral, unbalance, loads, lineRatingsA: board.phases.map((_, k) => lineRatingOf(board, k)), transformer, sourceUnits, limits, label, lineToLine, hasNeutral: board.hasNeutral, region: conventions.region, feederResistance, ...(board.feederUnequalLengths ? { feederLengths: board.feederUnequalLengths } : {}) });
   const voltageCheck = checkVoltages({ limits, phases, lineToLine, hasNeutral: board.hasNeutral, loads, label });
   const cautions = warnings.some((w) => w.code.startsWith('neutral')) ? [NEUTRAL_CAUTION, GENERAL_CAUTION] : [GENERAL_CAUTION];
   return {
@@ -261,6 +261,7 @@ export function analyseSolution(solved: NetworkSolution): BoardResult {
       nominalLineToNeutralV: board.nominalLineToNeutralV,
       nominalLineToLineV: board.nominalLineToLineV,
       neutralOpen: board.neutralOpen,
+      ...(board.withoutNeutral ? { withoutNeutral: true as const } : {}),
     },
     conventions,
     solve: { iterations: solution.iterations, lastChangePercent: solution.lastChange * 100 },

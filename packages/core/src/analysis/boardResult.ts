@@ -253,6 +253,8 @@ export interface BoardResult {
     readonly nominalLineToNeutralV: number;
     readonly nominalLineToLineV: number | null;
     readonly neutralOpen: boolean;
+    /** Present where no neutral reaches this board of a system that has one: its feeder, or one upstream, has line conductors only. */
+    readonly withoutNeutral?: true;
   };
   /**
    * Region, phase labels and voltage limits the report follows. Keys in this result stay

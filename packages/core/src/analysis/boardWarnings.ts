@@ -9,6 +9,7 @@ import { bandWords, judgeVoltage, presetLimits, type VoltageLimits } from '../bo
 import type { Region } from '../board/conventions/region.js';
 import { circuitNumberMismatches, sharedCircuitNumbers } from './panelNumbering.js';
 import { unitWords } from './sourceUnitsWords.js';
+import { lengthFigure, type FeederRouteLengths } from '../board/feederModel.js';
 
 export const WARNING_THRESHOLDS = {
   /** Voltage unbalance factor above which supply-quality standards start to object (EN 50160, IEC 61000-2-2: 2 %). */
@@ -64,6 +65,8 @@ export function boardWarnings(input: {
   readonly region?: Region;
   /** Resistance of the feeder into the board, ohm: each line conductor (in the order of `phases`) and the neutral. */
   readonly feederResistance?: { readonly lines: readonly number[]; readonly neutral: number } | null;
+  /** The route lengths of the feeder's conductors, where the file gives them unalike. */
+  readonly feederLengths?: FeederRouteLengths;
 }): BoardWarning[] {
   const out: BoardWarning[] = [];
   const { phases, neutral, unbalance, loads, lineRatingsA } = input;
@@ -119,6 +122,8 @@ export function boardWarnings(input: {
       value: neutral!.current.magnitude,
       threshold: largest * Math.sqrt(rLine / feeder!.neutral),
     });
+  const lengths = input.feederLengths && unequalRouteLengths(input.feederLengths, phases.map((p) => label(p.phase)));
+  if (lengths) out.push(lengths);
   if (neutral?.ratingA != null && neutral.current.magnitude > neutral.ratingA)
     out.push({
       code: 'neutral-over-rating',
@@ -258,6 +263,35 @@ function breakerRule(region: Region, continuous: boolean): { share: number; word
   return {
     share: WARNING_THRESHOLDS.continuousBreakerShare,
     words: 'NEC 210.20(A): a continuous load — one that may run 3 h or more, as every load is taken unless marked continuous: false — at most 80 % of the rating, unless the breaker is listed for 100 % duty',
+  };
+}
+
+/**
+ * Route lengths of one feeder's conductors that differ by more than terminations explain: above
+ * 1.2 × the shortest and more than 1 m apart (common practice, no source; the conductors of a
+ * feeder run together). The solve takes each conductor as written, so a slip there moves the
+ * neutral's or a line's impedance silently.
+ */
+export const ROUTE_LENGTH_SPREAD = { ratio: 1.2, metres: 1 } as const;
+const METRES_PER_FOOT = 0.3048;
+
+function unequalRouteLengths(lengths: FeederRouteLengths, lineLabels: readonly string[]): BoardWarning | null {
+  const given = [...lengths.lines, lengths.neutral].filter((m): m is number => m !== null);
+  const shortest = Math.min(...given);
+  const longest = Math.max(...given);
+  if (given.length < 2 || longest <= shortest * ROUTE_LENGTH_SPREAD.ratio || longest - shortest <= ROUTE_LENGTH_SPREAD.metres) return null;
+  const shown = (m: number) => (lengths.unit === 'ft' ? `${lengthFigure(m / METRES_PER_FOOT, 0)} ft` : `${lengthFigure(m, 1)} m`);
+  const lines = lengths.lines.filter((m): m is number => m !== null);
+  const lineWords =
+    lines.length === lengths.lines.length && lines.every((m) => m === lines[0])
+      ? [`${lines.length > 1 ? 'lines' : 'line'} ${shown(lines[0]!)}`]
+      : lengths.lines.flatMap((m, k) => (m === null ? [] : [`${lineLabels[k]} ${shown(m)}`]));
+  const words = [...lineWords, ...(lengths.neutral === null ? [] : [`neutral ${shown(lengths.neutral)}`])].join(', ');
+  return {
+    code: 'feeder-lengths-unalike',
+    message: `the feeder's conductors are given different route lengths (${words}): the conductors of one feeder run together, so one length is likely a slip, and the solve takes each as written; check them`,
+    value: longest / shortest,
+    threshold: ROUTE_LENGTH_SPREAD.ratio,
   };
 }
 

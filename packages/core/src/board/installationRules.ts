@@ -98,19 +98,31 @@ function ruleFeederConductors(spec: InstallationBaseSpec): InputIssue[] {
   const byName = new Map(spec.boards.map((b) => [b.name, b]));
   const children = new Map<string, BoardSpec[]>();
   for (const b of spec.boards) if (b.fedFrom !== undefined) children.set(b.fedFrom, [...(children.get(b.fedFrom) ?? []), b]);
-  /** Loads on this board and every board it feeds that use the neutral (a loop is left to ruleTree). */
-  const neutralLoads = (board: BoardSpec): string[] => {
-    const names: string[] = [];
+  /** Loads on this board and every board it feeds that use the neutral (a loop is left to ruleTree), star-connected ones apart. */
+  const neutralLoads = (board: BoardSpec): { lineToNeutral: string[]; star: string[] } => {
+    const found = { lineToNeutral: [] as string[], star: [] as string[] };
     const seen = new Set<BoardSpec>();
     const stack = [board];
     while (stack.length) {
       const b = stack.pop()!;
       if (seen.has(b)) continue;
       seen.add(b);
-      names.push(...b.loads.filter(usesNeutral).map((l) => `"${l.name}" on ${b.name}`));
+      for (const l of b.loads.filter(usesNeutral)) (l.connection === 'ABC-star' ? found.star : found.lineToNeutral).push(`"${l.name}" on ${b.name}`);
       stack.push(...(children.get(b.name) ?? []));
     }
-    return names;
+    return found;
+  };
+  const listed = (names: readonly string[]) => `${names.slice(0, 3).join(', ')}${names.length > 3 ? ` and ${names.length - 3} more` : ''}`;
+  /**
+   * A star-connected load takes the neutral only because its star point is tied by default: a motor's
+   * star is not connected to a neutral, so the fix is usually `starPoint: floating`, not a conductor.
+   */
+  const missingNeutralWords = ({ lineToNeutral, star }: { lineToNeutral: string[]; star: string[] }) => {
+    const floating = `starPoint: floating on ${listed(star)} if ${star.length > 1 ? 'their star points are' : 'its star point is'} not tied to a neutral (a motor's is not)`;
+    if (lineToNeutral.length === 0)
+      return `${floating}: a star-connected load is taken as tied unless so written, and this feeder has no neutral; where the star point is tied, the neutral conductor's size with the length (e.g. neutral: { mm2: … })`;
+    const rest = star.length ? `; and ${floating}` : '';
+    return `the neutral conductor, which ${listed(lineToNeutral)} return through: its size with the length (e.g. neutral: { mm2: … }), or r: 0, x: 0 for a neutral of no impedance${rest}`;
   };
   spec.boards.forEach((b, i) => {
     const f = b.feeder;
@@ -122,14 +134,7 @@ function ruleFeederConductors(spec: InstallationBaseSpec): InputIssue[] {
     }
     if (f.line && !f.neutral && systemHasNeutral(spec.supply.system) && byName.get(b.name) === b) {
       const users = neutralLoads(b);
-      if (users.length)
-        issues.push(
-          inputIssue(
-            'missing',
-            `${path}.neutral`,
-            `the neutral conductor, which ${users.slice(0, 3).join(', ')}${users.length > 3 ? ` and ${users.length - 3} more` : ''} return through: its size with the length (e.g. neutral: { mm2: … }), or r: 0, x: 0 for a neutral of no impedance`,
-          ),
-        );
+      if (users.lineToNeutral.length || users.star.length) issues.push(inputIssue('missing', `${path}.neutral`, missingNeutralWords(users)));
     }
   });
   return issues;
