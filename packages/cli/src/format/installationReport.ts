@@ -147,6 +147,9 @@ export interface InstallationReportOptions {
   readonly detailed: readonly string[];
 }
 
+/** The one line an ideal supply gets: what it means for the figures, and how to give the real one. */
+const IDEAL_SOURCE_LINE = wrapText('ideal (zero source impedance: no transformer or impedance given): nominal voltage at its terminals whatever the load, so no drop or loss before the service feeder', '  source      ', '              ');
+
 export function renderInstallationReport(r: InstallationResult, options: InstallationReportOptions): string {
   const first = r.boards[0]!.result.board;
   // The trade's notation, the region's way round (230/400 V, 208Y/120 V, 120/240 V).
@@ -154,19 +157,21 @@ export function renderInstallationReport(r: InstallationResult, options: Install
   const t = r.totals;
   const warnings = r.boards.flatMap((b) => b.result.warnings.map((w) => wrapText(`${b.name}: ${w.message}`, '  ! ')));
   const cautions = [...new Set(r.boards.flatMap((b) => b.result.cautions))];
+  const ideal = first.idealSource === true;
   const parts = [
     [r.installation.name, `${SYSTEM_WORDS[r.installation.system] ?? r.installation.system} · ${volts} · ${first.frequencyHz} Hz · ${r.installation.boardCount} board${r.installation.boardCount === 1 ? '' : 's'}`].join('\n'),
     ...collapseBlock(r),
     section('Boards') + boardTable(r) + `\n${note("own: this board's circuits; fed: what its feeder delivers, boards beyond it included.")}`,
     section('Feeders') +
       feederTable(r) +
-      `\n${note('drop: |V| at the sending end minus |V| at the board, the phase that changes most (negative: a rise), % of nominal; for the service feeder, from the source EMF. loss: conductor losses, the service feeder\'s with the source windings.')}` +
+      `\n${note(`drop: |V| at the sending end minus |V| at the board, the phase that changes most (negative: a rise), % of nominal; for the service feeder, from the source EMF. loss: conductor losses, ${ideal ? 'the source being ideal (no windings to lose power in)' : "the service feeder's with the source windings"}.`)}` +
       cableList(r),
     section('Installation') +
       [
         `  loads       ${fixed(t.loadKW, 3)} kW  ${fixed(t.loadKvar, 3)} kvar`,
-        `  losses      ${fixed(t.lossesKW, 3)} kW  (source windings and every feeder)`,
+        `  losses      ${fixed(t.lossesKW, 3)} kW  (${ideal ? 'every feeder' : 'source windings and every feeder'})`,
         `  from source ${fixed(t.sourceKW, 3)} kW  ${fixed(t.sourceKvar, 3)} kvar`,
+        ...(ideal ? [IDEAL_SOURCE_LINE] : []),
         `  lowest phase voltage ${fixed(t.lowestVoltagePercent, 1)} % of nominal, at ${t.lowestVoltageBoard}`,
         limitsLine(r),
         ...banksLine(r),

@@ -258,12 +258,15 @@ function powerBlock(r: BoardResult): string {
       'losses',
       feeding
         ? `${fixed(l.totalKW, 3)} kW (its feeder: line conductors ${fixed(l.lineFeederKW, 3)}, neutral ${fixed(l.neutralKW, 3)})`
-        : `${fixed(l.totalKW, 3)} kW (source ${fixed(l.sourceKW, 3)}, line conductors ${fixed(l.lineFeederKW, 3)}, neutral ${fixed(l.neutralKW, 3)})`,
+        : `${fixed(l.totalKW, 3)} kW (${r.board.idealSource ? 'none in the ideal source;' : `source ${fixed(l.sourceKW, 3)},`} line conductors ${fixed(l.lineFeederKW, 3)}, neutral ${fixed(l.neutralKW, 3)})`,
     ),
     ...(feedsOthers ? [row('boards beyond', `${fixed(beyondKW, 3)} kW, ${fixed(beyondKvar, 3)} kvar (the boards it feeds, with their feeders)`)] : []),
     supply,
     ...(r.transformer
       ? [row('transformer', `${fixed(r.transformer.kVA, 2)} kVA at its terminals; ${fixed(r.transformer.loadingPercent, 0)} % of rated current (${fixed(r.transformer.ratedKVA, 0)} kVA)`)]
+      : []),
+    ...(r.board.idealSource
+      ? [wrapText('ideal (zero source impedance: no transformer or impedance given): nominal voltage at its terminals whatever the load', `  ${'source'.padEnd(16)} `, ' '.repeat(19))]
       : []),
     ...(r.sourceUnits ? [wrapText(sourceUnitsWords(r.sourceUnits, labeller(r)), `  ${'supply units'.padEnd(16)} `, ' '.repeat(19))] : []),
     ...(r.incomer

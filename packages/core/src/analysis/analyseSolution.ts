@@ -28,6 +28,12 @@ const PAIRS: Record<string, readonly [PhaseId, PhaseId][]> = {
 
 const percentOf = (x: ComplexValue, base: ComplexValue) => (abs(base) === 0 ? 0 : (100 * abs(x)) / abs(base));
 
+/** The main board of a supply of zero impedance: every source impedance nothing (a sub-board's is zero as its supply is the board above). */
+function hasIdealSource(board: NetworkSolution['board']): boolean {
+  const none = (z: ComplexValue | undefined) => z === undefined || (z.re === 0 && z.im === 0);
+  return (board.installation?.boardIndex ?? 0) === 0 && none(board.sourceImpedance) && (board.sourceImpedances ?? []).every(none) && none(board.sourceStarImpedance) && !board.sourceUnits?.length;
+}
+
 /** Voltages of the board's phase buses to the source star point, and what line-to-neutral loads see. */
 function boardVoltages(solution: Pick<NetworkSolution, 'board' | 'topology' | 'nodeVoltages'>) {
   const { board } = solution;
@@ -262,6 +268,7 @@ export function analyseSolution(solved: NetworkSolution): BoardResult {
       nominalLineToLineV: board.nominalLineToLineV,
       neutralOpen: board.neutralOpen,
       ...(board.withoutNeutral ? { withoutNeutral: true as const } : {}),
+      ...(hasIdealSource(board) ? { idealSource: true as const } : {}),
     },
     conventions,
     solve: { iterations: solution.iterations, lastChangePercent: solution.lastChange * 100 },
