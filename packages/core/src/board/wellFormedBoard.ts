@@ -16,6 +16,7 @@ import {
   ANGLE_DEG,
   AWG_MAX_CHARS,
   BREAKER_POLES,
+  CIRCUIT_NUMBER,
   CONDUCTOR_MATERIALS,
   CONDUIT_KINDS,
   CONNECTIONS,
@@ -107,9 +108,11 @@ const nameText: PlainShape = (v) => {
   const text = textOf(1, NAME_MAX_CHARACTERS)(v);
   return text !== NOT_THIS_SHAPE && /\S/.test(text as string) ? text : NOT_THIS_SHAPE;
 };
+/** boardSchema's circuit: text, or a whole number read as its text. */
+const circuitText = firstOf(textOf(1), (v) => (wholeIn(CIRCUIT_NUMBER.min, CIRCUIT_NUMBER.max)(v) === NOT_THIS_SHAPE ? NOT_THIS_SHAPE : String(v)));
 const load = strictObjectOf({
   name: required(nameText),
-  circuit: optional(textOf(1)),
+  circuit: optional(circuitText),
   breakerA: optional(within(R.ratingA)),
   poles: optional(oneOf(BREAKER_POLES)),
   continuous: optional(trueOrFalse),
