@@ -34,16 +34,39 @@ function moved(issue: InputIssue, prefix: string): InputIssue {
   return { ...issue, path, message: issue.message.startsWith(issue.path) ? `${path}${issue.message.slice(issue.path.length)}` : issue.message };
 }
 
+/** A board name as a reader sees it: spaces collapsed and trimmed, letter case ignored. */
+const foldName = (name: string) => name.trim().replace(/\s+/g, ' ').toLowerCase();
+/** What the reports call the main board's source, folded: no board may take it. */
+const RESERVED_BOARD_NAMES: readonly string[] = ['supply'];
+
 function ruleTree(spec: InstallationBaseSpec): InputIssue[] {
   const issues: InputIssue[] = [];
   const index = new Map<string, number>();
+  // Names that differ only in spaces or letter case read alike in every table and drawing, and to --board.
+  const folded = new Map<string, number>();
   let duplicated = false;
   spec.boards.forEach((b, i) => {
     const first = index.get(b.name);
+    const alike = folded.get(foldName(b.name));
     if (first !== undefined) {
       duplicated = true;
       issues.push(inputIssue('duplicate', `boards[${i}].name`, `a name not already used (boards[${first}] has it)`, b.name));
-    } else index.set(b.name, i);
+    } else if (alike !== undefined) {
+      duplicated = true;
+      issues.push(
+        inputIssue(
+          'duplicate',
+          `boards[${i}].name`,
+          `a name that differs from the other boards' in more than spaces or letter case (boards[${alike}] is ${JSON.stringify(spec.boards[alike]!.name)}): the reports and --board could not tell the two apart`,
+          b.name,
+        ),
+      );
+    } else {
+      index.set(b.name, i);
+      folded.set(foldName(b.name), i);
+    }
+    if (RESERVED_BOARD_NAMES.includes(foldName(b.name)))
+      issues.push(inputIssue('reserved_name', `boards[${i}].name`, `a name other than ${JSON.stringify(b.name)}: the reports name the main board's source "supply" (its feeder runs "from supply"), and a board of that name would read as the source`, b.name));
   });
   const mains = spec.boards.flatMap((b, i) => (b.fedFrom === undefined ? [i] : []));
   if (mains.length === 0) issues.push(inputIssue('missing', 'boards', 'one main board with no fedFrom: the board the supply feeds'));
@@ -55,8 +78,7 @@ function ruleTree(spec: InstallationBaseSpec): InputIssue[] {
   spec.boards.forEach((b, i) => {
     if (b.fedFrom === undefined) return;
     if (!index.has(b.fedFrom)) {
-      const fold = (n: string) => n.trim().replace(/\s+/g, ' ').toLowerCase();
-      const near = names.find((n) => fold(n) === fold(b.fedFrom!));
+      const near = names.find((n) => foldName(n) === foldName(b.fedFrom!));
       const hint = near === undefined ? '' : ` (${JSON.stringify(near)} differs only in spaces or letter case)`;
       issues.push(inputIssue('unknown_board', `boards[${i}].fedFrom`, `the name of a board in this installation, exactly as written: ${names.map((n) => JSON.stringify(n)).join(', ')}${hint}`, b.fedFrom));
       return;
