@@ -4,7 +4,7 @@
  * pointed at starPoint: floating first; a board no neutral reaches reads as a 3-wire board.
  * Invented scenario: a workshop yard fed from a 230/400 V main board.
  */
-import { mkdtempSync, writeFileSync } from 'node:fs';
+import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
@@ -106,5 +106,15 @@ describe('a three-core feeder (no neutral conductor)', () => {
     expect(board).not.toMatch(/^ {2}N /m);
     expect(board).not.toContain("neutral conductor's drop is included");
     expect(out).toMatch(/^ {2}Workshop +Main +\S+ +\S+ +\S+ +- +/m);
+  });
+
+  it('the report says it among the board’s facts', () => {
+    const file = writeTemp('three-core-report.yaml', JSON.stringify(yard({ lengthM: 20, line: { mm2: 16 } }, [{ ...motor, starPoint: 'floating' }])));
+    const out = join(dir, 'three-core.md');
+    expect(runTrivar(['report', file, '--format', 'md', '-o', out]).code).toBe(0);
+    const md = readFileSync(out, 'utf8');
+    const shop = md.slice(md.indexOf('## Board: Workshop'));
+    expect(shop).toContain('- **Neutral:** none at this board: its feeder, or one upstream, has line conductors only');
+    expect(md.slice(md.indexOf('## Board: Main'), md.indexOf('## Board: Workshop'))).not.toContain('**Neutral:**');
   });
 });

@@ -165,6 +165,7 @@ export function boardSection(spec: InstallationBaseSpec, result: InstallationRes
       items: [
         ['Fed from', fedBy],
         ['Feeder', feederWords(spec, result, board.name)],
+        ...(board.result.board.withoutNeutral ? [['Neutral', 'none at this board: its feeder, or one upstream, has line conductors only'] as [string, string]] : []),
         ['Feeder drop and loss', `${fixed(feeder.voltageDropPercent, 2)} % worst phase, ${fixed(feeder.lossesKW, 3)} kW`],
         ['Circuits', `${own.loads.length}`],
       ],
