@@ -3,7 +3,7 @@
  * speaks of no source windings where it lists the losses; a supply with a transformer keeps them.
  * Invented scenario: a kiosk row on a 230/400 V supply, with and without its 63 kVA transformer.
  */
-import { mkdtempSync, writeFileSync } from 'node:fs';
+import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
@@ -54,5 +54,15 @@ describe('an ideal source', () => {
     expect(out).toContain('(source windings and every feeder)');
     expect(out).not.toContain('ideal');
     expect(runTrivar(['solve', transformer, '--board', 'Row board']).stdout).toMatch(/losses +\d+\.\d{3} kW \(source \d+\.\d{3}, line conductors/);
+  });
+
+  it('the report words its losses alike: no source windings for an ideal source', () => {
+    const out = join(dir, 'ideal.md');
+    expect(runTrivar(['report', ideal, '--format', 'md', '-o', out]).code).toBe(0);
+    const md = readFileSync(out, 'utf8');
+    expect(md).toContain('- **Source:** ideal (zero source impedance)');
+    expect(md).toMatch(/- \*\*Losses \(every feeder; the source is ideal\):\*\* 0\.0\d\d kW/);
+    expect(md).toContain('Loss: conductor losses, the source being ideal (no windings to lose power in).');
+    expect(md).not.toContain('source windings');
   });
 });

@@ -124,7 +124,7 @@ export function feedersSection(result: InstallationResult): ReportSection {
           fixed(f.voltageDropPercent, 2),
           fixed(f.lossesKW, 3),
         ]),
-        note: 'Loading: the most loaded conductor against its rating (— without ratings). Drop: |V| at the sending end minus |V| at the board, the phase that changes most (negative: a rise), % of nominal line-to-neutral voltage; for the service feeder, from the source EMF. Loss: conductor losses (the service feeder also the source windings).',
+        note: `Loading: the most loaded conductor against its rating (— without ratings). Drop: |V| at the sending end minus |V| at the board, the phase that changes most (negative: a rise), % of nominal line-to-neutral voltage; for the service feeder, from the source EMF. Loss: conductor losses${result.boards[0]!.result.board.idealSource ? ', the source being ideal (no windings to lose power in)' : ' (the service feeder also the source windings)'}.`,
       },
     ],
   };
@@ -137,7 +137,7 @@ export function totalsSection(result: InstallationResult): ReportSection {
   const warnings = result.boards.reduce((n, b) => n + b.result.warnings.length, 0);
   const items: [string, string][] = [
     ['Loads on every board', `${fixed(t.loadKW, 2)} kW, ${fixed(t.loadKvar, 2)} kvar`],
-    ['Losses (source windings and every feeder)', `${fixed(t.lossesKW, 3)} kW`],
+    [main.board.idealSource ? 'Losses (every feeder; the source is ideal)' : 'Losses (source windings and every feeder)', `${fixed(t.lossesKW, 3)} kW`],
     ['From the source', `${fixed(t.sourceKW, 2)} kW, ${fixed(t.sourceKvar, 2)} kvar, ${fixed(sourceKVA, 2)} kVA`],
     ['Power factor at the source, kW / |kVA|', sourceKVA > 0 ? fixed(t.sourceKW / sourceKVA, 3) : '—'],
     ['Lowest phase voltage', `${fixed(t.lowestVoltagePercent, 1)} % of nominal, at ${t.lowestVoltageBoard}`],
