@@ -65,4 +65,11 @@ describe('an ideal source', () => {
     expect(md).toContain('Loss: conductor losses, the source being ideal (no windings to lose power in).');
     expect(md).not.toContain('source windings');
   });
+
+  it('correct on an installation with an ideal source: the feeders’ note names no source windings either', () => {
+    const chiller = write('chiller.yaml', kiosks('').replace('kW: 6 } ]', 'kW: 6 }, { name: Chiller, connection: L1L2L3-delta, kW: 8, pf: 0.75 } ]'));
+    const out = runTrivar(['correct', chiller, '--board', 'Row board']).stdout;
+    expect(out).toMatch(/loss: conductor losses, the\s+source being ideal \(no windings to lose power in\)/);
+    expect(out).not.toContain('source windings');
+  });
 });
