@@ -7,7 +7,7 @@
  * draws exactly P/V.
  */
 import { describe, expect, it } from 'vitest';
-import { solveBoard, type BoardResult } from '@trivar/core';
+import { assumedPfNote, solveBoard, type BoardResult } from '@trivar/core';
 
 /** One resistive circuit of `kW` on a breaker of `breakerA`, line-to-neutral, on a stiff supply. */
 function board(region: 'north-america' | 'iec', kW: number, breakerA: number, continuous?: boolean): BoardResult {
@@ -81,5 +81,39 @@ describe('breaker warnings by region', () => {
     expect(w.value).toBeLessThan(16.05);
     expect(w.message).toMatch(/draws 16\.02 A, above its 16 A breaker/);
     expect(w.message).not.toMatch(/would trip/);
+  });
+});
+
+describe('a circuit that generates (negative kW) is judged as a source, not a load', () => {
+  it('North America: a 2 kW inverter feeding back 16.7 A on a 20 A breaker passes 80 %, by the output-circuit rule, even marked continuous: false', () => {
+    const r = board('north-america', -2, 20, false);
+    expect(r.loads[0]!.currentA).toBeCloseTo(2000 / 120, 9);
+    expect(breakerCodes(r)).toEqual(['output-circuit-over-breaker-share']);
+    const w = r.warnings[0]!;
+    expect(w.threshold).toBe(16);
+    expect(w.message).toBe(
+      "circuit \"heater\" feeds back 16.7 A, above 16.0 A, 80 % of its 20 A breaker (a generating circuit: NEC 705.28/705.30 (690.8 for PV), from memory: breaker and conductors at 125 % of the source's continuous output current, so at most 80 % of the rating): give it a larger breaker and conductors",
+    );
+    expect(w.message).not.toMatch(/draws|210\.20|continuous load/);
+  });
+
+  it('North America: 3 kW fed back (25.0 A) is over a 20 A breaker; 1.9 kW (15.8 A) is within 80 %', () => {
+    const over = board('north-america', -3, 20);
+    expect(breakerCodes(over)).toEqual(['circuit-over-breaker']);
+    expect(over.warnings[0]!.message).toMatch(/^circuit "heater" feeds back 25\.0 A, above its 20 A breaker \(a generating circuit: NEC 705\.28/);
+    expect(over.warnings[0]!.message).toContain('too small for what the source sends back');
+    expect(breakerCodes(board('north-america', -1.9, 20))).toEqual([]);
+  });
+
+  it('IEC: 4 kW fed back at 230.9 V (17.3 A) is over a 16 A breaker, worded as output; 3.5 kW is within I_n', () => {
+    const over = board('iec', -4, 16);
+    expect(over.warnings.find((x) => x.code === 'circuit-over-breaker')!.message).toContain("feeds back 17.3 A, above its 16 A breaker (IEC 60364-4-43: a source's output current at most the rated current I_n)");
+    expect(breakerCodes(board('iec', -3.5, 16))).toEqual([]);
+  });
+
+  it('the pf footnote of a board with both calls only the consumers resistive loads', () => {
+    expect(assumedPfNote([9.6, 5])).toBe('*: pf not given in the file, taken as 1 (a resistive load).');
+    expect(assumedPfNote([-40])).toBe('*: pf not given in the file, taken as 1 (exporting at unity power factor).');
+    expect(assumedPfNote([9.6, 5, -40])).toBe('*: pf not given in the file, taken as 1 (a resistive load; where it exports, a source at unity power factor).');
   });
 });

@@ -8,7 +8,7 @@ import fc from 'fast-check';
 import { solveBoard } from '@trivar/core';
 import { circuitNumberMismatches, panelPhasesOf } from '../../packages/core/src/analysis/panelNumbering.js';
 
-type Load = { name: string; circuit?: string; connection: string; kW: number };
+type Load = { name: string; circuit?: string; poles?: number; connection: string; kW: number };
 const board = (supply: Record<string, unknown>, loads: Load[], conventions?: Record<string, unknown>) => ({
   name: 'Diner panel',
   supply: { frequencyHz: 60, transformer: { kVA: 75, impedancePercent: 3, xOverR: 3 }, ...supply },
@@ -88,6 +88,69 @@ describe('a circuit number that disagrees with its phase', () => {
   it('a single-phase board has no rotation to judge', () => {
     const load = { name: 'x', circuit: '3', connection: 'A-N' } as never;
     expect(circuitNumberMismatches([load], 1)).toEqual([]);
-    expect(circuitNumberMismatches([load], 3)).toEqual([{ name: 'x', circuit: 3, connection: 'A-N', implied: ['B'], with: [] }]);
+    expect(circuitNumberMismatches([load], 3)).toEqual([{ kind: 'phases', name: 'x', circuit: 3, positions: [3], connection: 'A-N', poles: 1, implied: ['B'], with: [] }]);
+  });
+});
+
+describe('multi-pole breakers written with every position', () => {
+  const poleWarnings = (b: unknown) => solveBoard(b).warnings.filter((w) => w.code === 'circuit-number-phase' || w.code === 'circuit-number-poles');
+  // A bakery's 208Y/120 panel: rows 1–2 on A, 3–4 on B, 5–6 on C, 7–8 on A again.
+  const bakery = (loads: Record<string, unknown>[]) => board({ voltage: '208Y/120' }, loads as Load[]);
+
+  it('positions 1,3 and 7,9 sit on A-B: a load written B-C there is flagged, one written A-B is not', () => {
+    const warnings = poleWarnings(
+      bakery([
+        { name: 'Proofer', circuit: '1,3', poles: 2, connection: 'B-C', kW: 5 },
+        { name: 'Deck oven', circuit: '7, 9', poles: 2, connection: 'B-C', kW: 5 },
+        { name: 'Dough sheeter', circuit: '13/15', poles: 2, connection: 'A-B', kW: 2 },
+        { name: 'Walk-in', circuit: '4 6', poles: 2, connection: 'B-C', kW: 2 },
+      ]),
+    );
+    expect(warnings.map((w) => [w.code, w.value])).toEqual([
+      ['circuit-number-phase', 1],
+      ['circuit-number-phase', 7],
+    ]);
+    expect(warnings[0]!.message).toBe(
+      'load "Proofer" on circuit 1,3 is written B-C, but the usual panel numbering (odd circuits down the left, even down the right, phases A, B, C by row) puts circuit 1,3 on A-B: check the schedule or the connection',
+    );
+    expect(warnings[1]!.message).toContain('load "Deck oven" on circuit 7,9 is written B-C');
+  });
+
+  it('a 3-pole breaker given two positions, a 1-pole one given two, and poles not in one column are flagged', () => {
+    const warnings = poleWarnings(
+      bakery([
+        { name: 'Mixer motor', circuit: '1,3', poles: 3, connection: 'ABC-delta', kW: 3, pf: 0.8 },
+        { name: 'Display case', circuit: '2,4', connection: 'C-N', kW: 0.2 },
+        { name: 'Fryer', circuit: '5,6', poles: 2, connection: 'C-A', kW: 3 },
+        { name: 'Exhaust fan', circuit: '8,10,12', poles: 3, connection: 'ABC-delta', kW: 1.5, pf: 0.85 },
+      ]),
+    );
+    expect(warnings.map((w) => [w.code, w.value])).toEqual([
+      ['circuit-number-poles', 1],
+      ['circuit-number-poles', 2],
+      ['circuit-number-poles', 5],
+    ]);
+    expect(warnings[0]!.message).toBe(
+      'load "Mixer motor" on circuit 1,3 has a 3-pole breaker, but the circuit names 2 positions: a breaker takes one position per pole (1, 3 and 5 for a 3-pole breaker at 1); check the schedule or the poles',
+    );
+    expect(warnings[1]!.message).toContain('(2 alone for a 1-pole breaker)');
+    expect(warnings[2]!.message).toBe(
+      'load "Fryer" on circuit 5,6: the poles of one breaker sit one above the other in a column (5 and 7 for a 2-pole breaker at 5), not at 5,6; check the schedule',
+    );
+  });
+
+  it('a split-phase panel: 1,3 is A-B, any two stacked positions fit a 240 V load; "1,3" and "1 / 3" are one circuit', () => {
+    const result = solveBoard(
+      board({ voltage: '120/240' }, [
+        { name: 'Range', circuit: '1,3', poles: 2, connection: 'A-B', kW: 8 },
+        { name: 'Heat strip', circuit: '1 / 3', poles: 2, connection: 'A-B', kW: 5 },
+      ] as Load[]),
+    );
+    expect(result.warnings.filter((w) => w.code.startsWith('circuit-number-')).map((w) => w.code)).toEqual(['circuit-number-shared']);
+  });
+
+  it('positions written in a form not read (a range "1-3", words) are not judged', () => {
+    const loads = [{ name: 'Spare', circuit: '1-3', poles: 2, connection: 'B-C', kW: 1 }, { name: 'Sign', circuit: 'left 3', connection: 'A-N', kW: 0.1 }];
+    expect(poleWarnings(bakery(loads))).toEqual([]);
   });
 });

@@ -56,6 +56,10 @@ const installationCases: [string, unknown, string, string, RegExp][] = [
   ['a board name of 101 characters', editInstallation((b) => (b.boards[2].name = 'F'.repeat(101))), 'out_of_range', 'boards[2].name', /at most 100 characters/],
   ['a blank board name', editInstallation((b) => (b.boards[2].name = '   ')), 'invalid_format', 'boards[2].name', /visible character/],
   ['a circuit name of 101 characters', editInstallation((b) => (b.boards[1].loads[0].name = 'f'.repeat(101))), 'out_of_range', 'boards[1].loads[0].name', /at most 100 characters/],
+  // Names alike but for spaces or case read alike in every table and to --board; "supply" is the reports' word for the source.
+  ['board names differing only in spaces', editInstallation((b) => (b.boards[2].name = 'Floor  1')), 'duplicate', 'boards[2].name', /differs from the other boards' in more than spaces or letter case \(boards\[1\] is "Floor 1"\)/],
+  ['board names differing only in letter case', editInstallation((b) => (b.boards[2].name = 'FLOOR 1 ')), 'duplicate', 'boards[2].name', /boards\[1\] is "Floor 1"/],
+  ['a board named supply', editInstallation((b) => ((b.boards[0].name = 'Supply'), (b.boards[1].fedFrom = 'Supply'))), 'reserved_name', 'boards[0].name', /a name other than "Supply": the reports name the main board's source "supply"/],
   ['fedFrom differing only in spaces and case', editInstallation((b) => (b.boards[2].fedFrom = 'floor  1 ')), 'unknown_board', 'boards[2].fedFrom', /"Floor 1" differs only in spaces or letter case/],
   // A conductor written flat or per phase: the issue names the field and its own fault, not "unknown key".
   ['a size written as text', editInstallation((b) => (b.boards[1].feeder.line = { mm2: '25' })), 'invalid_type', 'boards[1].feeder.line.mm2', /a number/],

@@ -92,6 +92,21 @@ describe('readWellFormedBoard', () => {
     expect(taken).toBeGreaterThan(50);
   });
 
+  it('a circuit number written bare is read as its text by both, and one that is no whole number from 1 to 9999 by neither', () => {
+    const board = (circuit: unknown) => ({ supply: { voltage: '208Y/120', frequencyHz: 60 }, loads: [{ name: 'Fryer', circuit, connection: 'A-N', kW: 2 }] });
+    for (const [circuit, text] of [[7, '7'], [1, '1'], [9999, '9999'], ['1,3', '1,3']] as const) {
+      expect(agrees(board(circuit))).toBe('shortcut');
+      const full = bySchema(board(circuit));
+      expect(full.ok && full.board.loads[0]!.circuit).toBe(text);
+    }
+    for (const circuit of [0, -3, 2.5, 10000, Number.NaN, true]) {
+      expect(readWellFormedBoard(board(circuit))).toBeUndefined();
+      const full = bySchema(board(circuit));
+      // Both forms named: "a string or a whole number", "… or a number >= 1", "… or a number <= 9999" (NaN: "… or a number").
+      expect(full.ok ? null : full.issues.map((i) => [i.path, i.message])).toEqual([['loads[0].circuit', expect.stringMatching(/^loads\[0\]\.circuit: expected a string or a (whole number|number|number [<>]= (1|9999)) \(received /)]]);
+    }
+  });
+
   it('agrees with the schema field by field: every field of two full boards set to every test value, deleted, or given a new key', () => {
     const conductor = { r: 0.1, x: 0.05, lengthM: 20, lengthFt: 65, rOhmPerKm: 0.5, xOhmPerKm: 0.08, mm2: 16, awg: '4/0', kcmil: 250, material: 'copper', temperatureC: 70, parallel: 2, ratingA: 63 };
     const load = { name: 'press', circuit: '7', breakerA: 32, poles: 3, connection: 'ABC-star', starPoint: 'floating', kW: 5, kvar: 1, kVA: 6, A: 9, pf: 0.9, sense: 'leading', ohms: { r: 10, x: 2 }, model: 'constant-current', zip: { z: 0.2, i: 0.3, p: 0.5 } };

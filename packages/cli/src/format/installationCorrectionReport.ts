@@ -120,7 +120,7 @@ export function renderInstallationEffect(e: InstallationEffect): string {
     '\n' +
     section('Feeders, before → after') +
     feederTable(e) +
-    `\n${note('drop: |V| at the sending end minus |V| at the board, the phase that changes most (negative: a rise), % of nominal; for the service feeder, from the source EMF. loss: conductor losses, the service feeder\'s with the source windings.')}` +
+    `\n${note(`drop: |V| at the sending end minus |V| at the board, the phase that changes most (negative: a rise), % of nominal; for the service feeder, from the source EMF. loss: conductor losses, ${e.before.boards[0]!.result.board.idealSource ? 'the source being ideal (no windings to lose power in)' : "the service feeder's with the source windings"}.`)}` +
     '\n' +
     section('Supply, before → after') +
     supplyLines(e) +

@@ -43,7 +43,7 @@ function boardTable(r: InstallationResult): string {
       treeName(b.name, b.depth),
       fixed(res.voltageCheck.lowest.percent, 1),
       fixed(res.voltageCheck.highest.percent, 1),
-      res.neutral ? fixed(res.neutral.current.magnitude, 1) : '',
+      res.neutral ? fixed(res.neutral.current.magnitude, 1) : res.board.withoutNeutral ? '-' : '',
       res.unbalance ? fixed(res.unbalance.voltageFactorPercent, 2) : '',
       fixed(res.totals.kW, 2),
       fixed(res.totals.kvar, 2),
@@ -71,15 +71,16 @@ function boardTable(r: InstallationResult): string {
 
 function feederTable(r: InstallationResult): string {
   const phases = r.feeders[0]?.lines.map((l) => l.phase) ?? [];
+  const hasNeutral = r.feeders[0]?.neutral !== null;
   const rows = r.feeders.map((f) => [
     f.board,
     f.from ?? 'supply',
     ...f.lines.map((l) => fixed(l.current.magnitude, 1)),
-    ...(f.neutral ? [f.neutral.open ? 'open' : fixed(f.neutral.current.magnitude, 1)] : []),
+    // A feeder of line conductors only, on a system with a neutral: '-', no conductor to read.
+    ...(hasNeutral ? [f.neutral ? (f.neutral.open ? 'open' : fixed(f.neutral.current.magnitude, 1)) : '-'] : []),
     fixed(f.voltageDropPercent, 2),
     fixed(f.lossesKW, 3),
   ]);
-  const hasNeutral = r.feeders[0]?.neutral !== null;
   return renderTable(
     [
       { header: 'to', align: 'left' },
@@ -146,6 +147,9 @@ export interface InstallationReportOptions {
   readonly detailed: readonly string[];
 }
 
+/** The one line an ideal supply gets: what it means for the figures, and how to give the real one. */
+const IDEAL_SOURCE_LINE = wrapText('ideal (zero source impedance: no transformer or impedance given): nominal voltage at its terminals whatever the load, so no drop or loss before the service feeder', '  source      ', '              ');
+
 export function renderInstallationReport(r: InstallationResult, options: InstallationReportOptions): string {
   const first = r.boards[0]!.result.board;
   // The trade's notation, the region's way round (230/400 V, 208Y/120 V, 120/240 V).
@@ -153,19 +157,21 @@ export function renderInstallationReport(r: InstallationResult, options: Install
   const t = r.totals;
   const warnings = r.boards.flatMap((b) => b.result.warnings.map((w) => wrapText(`${b.name}: ${w.message}`, '  ! ')));
   const cautions = [...new Set(r.boards.flatMap((b) => b.result.cautions))];
+  const ideal = first.idealSource === true;
   const parts = [
     [r.installation.name, `${SYSTEM_WORDS[r.installation.system] ?? r.installation.system} · ${volts} · ${first.frequencyHz} Hz · ${r.installation.boardCount} board${r.installation.boardCount === 1 ? '' : 's'}`].join('\n'),
     ...collapseBlock(r),
     section('Boards') + boardTable(r) + `\n${note("min and max %nom: the lowest and highest voltage the limits judge (line-to-neutral, line-to-line, at the loads); own: this board's circuits; fed: what enters its feeder at the sending end, the feeder's loss and the boards beyond it included (main board: what the source EMFs deliver).")}`,
     section('Feeders') +
       feederTable(r) +
-      `\n${note('drop: |V| at the sending end minus |V| at the board, the phase that changes most (negative: a rise), % of nominal; for the service feeder, from the source EMF. loss: conductor losses, the service feeder\'s with the source windings.')}` +
+      `\n${note(`drop: |V| at the sending end minus |V| at the board, the phase that changes most (negative: a rise), % of nominal; for the service feeder, from the source EMF. loss: conductor losses, ${ideal ? 'the source being ideal (no windings to lose power in)' : "the service feeder's with the source windings"}.`)}` +
       cableList(r),
     section('Installation') +
       [
         `  loads       ${fixed(t.loadKW, 3)} kW  ${fixed(t.loadKvar, 3)} kvar`,
-        `  losses      ${fixed(t.lossesKW, 3)} kW  (source windings and every feeder)`,
+        `  losses      ${fixed(t.lossesKW, 3)} kW  (${ideal ? 'every feeder' : 'source windings and every feeder'})`,
         `  from source ${fixed(t.sourceKW, 3)} kW  ${fixed(t.sourceKvar, 3)} kvar`,
+        ...(ideal ? [IDEAL_SOURCE_LINE] : []),
         `  lowest voltage ${fixed(t.lowestVoltagePercent, 1)} % of nominal, at ${t.lowestVoltageBoard} (${t.lowestVoltageAt})`,
         limitsLine(r),
         ...banksLine(r),

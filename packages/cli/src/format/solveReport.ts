@@ -37,6 +37,12 @@ export function voltageVerdictLine(r: BoardResult): string {
   return `limits ${bandWords(c.limits)} (${c.limits.preset}): ${verdict}; lowest ${fixed(c.lowest.percent, 1)} % at ${c.lowest.at}, highest ${fixed(c.highest.percent, 1)} % at ${c.highest.at}`;
 }
 
+/** The board's system; a board no neutral reaches says so, whatever the supply's system. */
+function systemWords(b: BoardResult['board']): string {
+  if (!b.withoutNeutral) return SYSTEM_WORDS[b.system] ?? b.system;
+  return `${b.system === 'split-phase' ? 'split-phase, two lines' : 'three-phase 3-wire'}, no neutral at this board`;
+}
+
 export function headerLines(r: BoardResult): string[] {
   const b = r.board;
   const label = labeller(r);
@@ -46,7 +52,7 @@ export function headerLines(r: BoardResult): string[] {
   const seq = b.system.startsWith('three') ? ` · sequence ${label(b.sequence)}` : '';
   return [
     wrapText(b.name, ''),
-    `${SYSTEM_WORDS[b.system] ?? b.system} · ${volts} · ${b.frequencyHz} Hz${seq}${b.neutralOpen ? ' · NEUTRAL OPEN' : ''}`,
+    `${systemWords(b)} · ${volts} · ${b.frequencyHz} Hz${seq}${b.neutralOpen ? ' · NEUTRAL OPEN' : ''}`,
   ];
 }
 
@@ -252,12 +258,15 @@ function powerBlock(r: BoardResult): string {
       'losses',
       feeding
         ? `${fixed(l.totalKW, 3)} kW (its feeder: line conductors ${fixed(l.lineFeederKW, 3)}, neutral ${fixed(l.neutralKW, 3)})`
-        : `${fixed(l.totalKW, 3)} kW (source ${fixed(l.sourceKW, 3)}, line conductors ${fixed(l.lineFeederKW, 3)}, neutral ${fixed(l.neutralKW, 3)})`,
+        : `${fixed(l.totalKW, 3)} kW (${r.board.idealSource ? 'none in the ideal source;' : `source ${fixed(l.sourceKW, 3)},`} line conductors ${fixed(l.lineFeederKW, 3)}, neutral ${fixed(l.neutralKW, 3)})`,
     ),
     ...(feedsOthers ? [row('boards beyond', `${fixed(beyondKW, 3)} kW, ${fixed(beyondKvar, 3)} kvar (the boards it feeds, with their feeders)`)] : []),
     supply,
     ...(r.transformer
       ? [row('transformer', `${fixed(r.transformer.kVA, 2)} kVA at its terminals; ${fixed(r.transformer.loadingPercent, 0)} % of rated current (${fixed(r.transformer.ratedKVA, 0)} kVA)`)]
+      : []),
+    ...(r.board.idealSource
+      ? [wrapText('ideal (zero source impedance: no transformer or impedance given): nominal voltage at its terminals whatever the load', `  ${'source'.padEnd(16)} `, ' '.repeat(19))]
       : []),
     ...(r.sourceUnits ? [wrapText(sourceUnitsWords(r.sourceUnits, labeller(r)), `  ${'supply units'.padEnd(16)} `, ' '.repeat(19))] : []),
     ...(r.incomer

@@ -34,6 +34,12 @@ const percentOf = (x: ComplexValue, base: ComplexValue) => {
   return Math.abs(a - b) <= SEQUENCE_VOLTAGE_RESOLUTION * b ? 100 : (100 * a) / b;
 };
 
+/** The main board of a supply of zero impedance: every source impedance nothing (a sub-board's is zero as its supply is the board above). */
+function hasIdealSource(board: NetworkSolution['board']): boolean {
+  const none = (z: ComplexValue | undefined) => z === undefined || (z.re === 0 && z.im === 0);
+  return (board.installation?.boardIndex ?? 0) === 0 && none(board.sourceImpedance) && (board.sourceImpedances ?? []).every(none) && none(board.sourceStarImpedance) && !board.sourceUnits?.length;
+}
+
 /** Voltages of the board's phase buses to the source star point, and what line-to-neutral loads see. */
 function boardVoltages(solution: Pick<NetworkSolution, 'board' | 'topology' | 'nodeVoltages'>) {
   const { board } = solution;
@@ -258,7 +264,7 @@ export function analyseSolution(solved: NetworkSolution): BoardResult {
   const label = (term: string) => labelIn(conventions.phaseNames, term);
   const limits = conventions.voltageLimits;
   const feederResistance = board.hasNeutral ? { lines: (board.lineImpedances ?? board.phases.map(() => board.lineImpedance)).map((z) => z.re), neutral: board.neutralImpedance.re } : null;
-  const warnings = boardWarnings({ belowThreshold, phases, neutral, unbalance, loads, lineRatingsA: board.phases.map((_, k) => lineRatingOf(board, k)), transformer, sourceUnits, limits, label, lineToLine, hasNeutral: board.hasNeutral, region: conventions.region, feederResistance });
+  const warnings = boardWarnings({ belowThreshold, phases, neutral, unbalance, loads, lineRatingsA: board.phases.map((_, k) => lineRatingOf(board, k)), transformer, sourceUnits, limits, label, lineToLine, hasNeutral: board.hasNeutral, region: conventions.region, feederResistance, ...(board.feederUnequalLengths ? { feederLengths: board.feederUnequalLengths } : {}) });
   const voltageCheck = checkVoltages({ limits, phases, lineToLine, hasNeutral: board.hasNeutral, loads, label });
   const cautions = warnings.some((w) => w.code.startsWith('neutral')) ? [NEUTRAL_CAUTION, GENERAL_CAUTION] : [GENERAL_CAUTION];
   return {
@@ -270,6 +276,8 @@ export function analyseSolution(solved: NetworkSolution): BoardResult {
       nominalLineToNeutralV: board.nominalLineToNeutralV,
       nominalLineToLineV: board.nominalLineToLineV,
       neutralOpen: board.neutralOpen,
+      ...(board.withoutNeutral ? { withoutNeutral: true as const } : {}),
+      ...(hasIdealSource(board) ? { idealSource: true as const } : {}),
     },
     conventions,
     solve: { iterations: solution.iterations, lastChangePercent: solution.lastChange * 100 },

@@ -253,6 +253,10 @@ export interface BoardResult {
     readonly nominalLineToNeutralV: number;
     readonly nominalLineToLineV: number | null;
     readonly neutralOpen: boolean;
+    /** Present where no neutral reaches this board of a system that has one: its feeder, or one upstream, has line conductors only. */
+    readonly withoutNeutral?: true;
+    /** Present on the main board when the supply is ideal (no transformer, impedance, bank or open delta: zero source impedance): its terminals hold the EMF whatever the load, and it has no windings to lose power in. */
+    readonly idealSource?: true;
   };
   /**
    * Region, phase labels and voltage limits the report follows. Keys in this result stay

@@ -9,6 +9,7 @@ import { bandWords, judgeVoltage, presetLimits, type VoltageLimits } from '../bo
 import type { Region } from '../board/conventions/region.js';
 import { circuitNumberMismatches, sharedCircuitNumbers } from './panelNumbering.js';
 import { unitWords } from './sourceUnitsWords.js';
+import { lengthFigure, type FeederRouteLengths } from '../board/feederModel.js';
 
 export const WARNING_THRESHOLDS = {
   /** Voltage unbalance factor above which supply-quality standards start to object (EN 50160, IEC 61000-2-2: 2 %). */
@@ -64,6 +65,8 @@ export function boardWarnings(input: {
   readonly region?: Region;
   /** Resistance of the feeder into the board, ohm: each line conductor (in the order of `phases`) and the neutral. */
   readonly feederResistance?: { readonly lines: readonly number[]; readonly neutral: number } | null;
+  /** The route lengths of the feeder's conductors, where the file gives them unalike. */
+  readonly feederLengths?: FeederRouteLengths;
 }): BoardWarning[] {
   const out: BoardWarning[] = [];
   const { phases, neutral, unbalance, loads, lineRatingsA } = input;
@@ -84,26 +87,43 @@ export function boardWarnings(input: {
   // A reduced neutral with no rating given: judged by heat per metre against the heaviest phase's
   // conductor (I²R, same cable and surroundings), which that phase's breaker limits. Above it the
   // neutral runs hotter than any protected conductor (common practice, no source). A full-size
-  // neutral reduces to the rule above.
+  // neutral reduces to the rule above. On a single-phase board the neutral carries the line current
+  // itself: the line breaker limits it, but that breaker is chosen for the line conductor, and the
+  // rules ask for a neutral of the line's size there (below), whatever it carries.
   const feeder = input.feederResistance;
   const heaviestIndex = heaviest ? phases.indexOf(heaviest) : -1;
   const rLine = feeder && heaviestIndex >= 0 ? (feeder.lines[heaviestIndex] ?? 0) : 0;
-  if (
-    heaviest &&
-    neutral &&
-    feeder &&
-    neutral.ratingA == null &&
-    rLine > 0 &&
-    feeder.neutral > rLine * (1 + ROUND_OFF_MARGIN) &&
-    neutral.current.magnitude <= largest * (1 + ROUND_OFF_MARGIN) &&
-    neutral.current.magnitude ** 2 * feeder.neutral > largest ** 2 * rLine * (1 + ROUND_OFF_MARGIN)
+  const reduced = Boolean(heaviest && neutral && feeder && rLine > 0 && feeder.neutral > rLine * (1 + ROUND_OFF_MARGIN));
+  if (reduced && phases.length === 1) {
+    const ratio = feeder!.neutral / rLine;
+    const rule =
+      input.region === 'north-america'
+        ? "the neutral of a two-wire circuit needs the line conductor's ampacity; the NEC lets a neutral be smaller only where it carries the unbalance of a multiwire feeder or service (220.61, from memory)"
+        : "IEC 60364-5-52 asks for a neutral of the line conductor's cross-section on single-phase two-wire circuits, whatever the size (524.2.1, from memory)";
+    out.push({
+      code: 'neutral-reduced-single-phase',
+      message: `the neutral of this single-phase feeder is reduced (${fmt(ratio, 2)} × the line conductor's resistance): on two wires it carries the whole line current, ${amps(neutral!.current.magnitude)} A now, up to what the line's breaker, chosen for the line conductor, lets through; ${rule}: give it the line's size`,
+      value: ratio,
+      threshold: 1,
+    });
+  } else if (
+    reduced &&
+    neutral!.ratingA == null &&
+    neutral!.current.magnitude <= largest * (1 + ROUND_OFF_MARGIN) &&
+    neutral!.current.magnitude ** 2 * feeder!.neutral > largest ** 2 * rLine * (1 + ROUND_OFF_MARGIN)
   )
     out.push({
       code: 'neutral-reduced-heating',
-      message: `the reduced neutral (${fmt(feeder.neutral / rLine, 2)} × a line conductor's resistance) carries ${amps(neutral.current.magnitude)} A: it heats more per metre than the heaviest phase (${label(heaviest.phase)}, ${amps(largest)} A), which its breaker limits, and nothing limits it; give the neutral's ratingA to judge it`,
-      value: neutral.current.magnitude,
-      threshold: largest * Math.sqrt(rLine / feeder.neutral),
+      message: `the reduced neutral (${fmt(feeder!.neutral / rLine, 2)} × a line conductor's resistance) carries ${amps(neutral!.current.magnitude)} A: it heats more per metre than the heaviest phase (${label(heaviest!.phase)}, ${amps(largest)} A), which its breaker limits, and nothing limits it; ${
+        phases.length === 2 && input.region === 'north-america'
+          ? "a 120/240 feeder's neutral may be smaller than its lines only where sized for the largest unbalanced load (NEC 220.61) at its ampacity (NEC 310.16; both from memory); "
+          : ''
+      }give the neutral's ratingA to judge it`,
+      value: neutral!.current.magnitude,
+      threshold: largest * Math.sqrt(rLine / feeder!.neutral),
     });
+  const lengths = input.feederLengths && unequalRouteLengths(input.feederLengths, phases.map((p) => label(p.phase)));
+  if (lengths) out.push(lengths);
   if (neutral?.ratingA != null && neutral.current.magnitude > neutral.ratingA)
     out.push({
       code: 'neutral-over-rating',
@@ -153,22 +173,27 @@ export function boardWarnings(input: {
         });
     }
   // A circuit drawing more than its breaker allows: the schedule would show the two side by side.
+  // A circuit that generates (negative kW, PV or a generator) is judged by the output-circuit rule, not the load rule.
   for (const load of loads) {
     if (load.breakerA === null || !load.energised) continue;
     const rating = +load.breakerA.toFixed(1);
-    const rule = breakerRule(input.region ?? 'iec', load.continuous);
+    const generates = load.kW < 0;
+    const rule = generates ? outputCircuitRule(input.region ?? 'iec') : breakerRule(input.region ?? 'iec', load.continuous);
     const allowed = load.breakerA * rule.share;
+    const flows = generates ? 'feeds back' : 'draws';
     if (load.currentA > load.breakerA)
       out.push({
         code: 'circuit-over-breaker',
-        message: `circuit "${load.name}" draws ${above(load.currentA, load.breakerA)} A, above its ${rating} A breaker (${rule.words}): the circuit is overloaded; a small overload can run for hours before a breaker trips, heating the cable meanwhile; check the load and the rating in the file`,
+        message: generates
+          ? `circuit "${load.name}" feeds back ${above(load.currentA, load.breakerA)} A, above its ${rating} A breaker (${rule.words}): the breaker and conductors are too small for what the source sends back, or its output in the file is too high; check the source's rated output current and the breaker`
+          : `circuit "${load.name}" draws ${above(load.currentA, load.breakerA)} A, above its ${rating} A breaker (${rule.words}): the circuit is overloaded; a small overload can run for hours before a breaker trips, heating the cable meanwhile; check the load and the rating in the file`,
         value: load.currentA,
         threshold: load.breakerA,
       });
     else if (load.currentA > allowed)
       out.push({
-        code: 'continuous-load-over-breaker-share',
-        message: `circuit "${load.name}" draws ${fmt(load.currentA)} A, above ${fmt(allowed)} A, ${fmt(rule.share * 100, 0)} % of its ${rating} A breaker (${rule.words}): give it a larger breaker and conductors, or mark it continuous: false if it never runs 3 h at a time`,
+        code: generates ? 'output-circuit-over-breaker-share' : 'continuous-load-over-breaker-share',
+        message: `circuit "${load.name}" ${flows} ${fmt(load.currentA)} A, above ${fmt(allowed)} A, ${fmt(rule.share * 100, 0)} % of its ${rating} A breaker (${rule.words}): give it a larger breaker and conductors${generates ? '' : ', or mark it continuous: false if it never runs 3 h at a time'}`,
         value: load.currentA,
         threshold: allowed,
       });
@@ -177,11 +202,21 @@ export function boardWarnings(input: {
   if (input.region === 'north-america')
     for (const m of circuitNumberMismatches(loads, phases.length)) {
       const rotation = phases.map((p) => label(p.phase)).join(', ');
-      const where = m.implied.length > 1 ? m.implied.map(label).join('-') : `phase ${label(m.implied[0]!)}`;
+      const numbering = `the usual panel numbering (odd circuits down the left, even down the right, phases ${rotation} by row)`;
+      // As the file wrote it: every position where it listed them, else the first.
+      const written = m.with.length ? String(m.circuit) : m.positions.join(',');
+      const stacked = Array.from({ length: m.poles }, (_, k) => m.circuit + 2 * k);
+      const column = m.poles === 1 ? `${m.circuit} alone for a 1-pole breaker` : `${stacked.slice(0, -1).join(', ')} and ${stacked.at(-1)} for a ${m.poles}-pole breaker at ${m.circuit}`;
+      const message =
+        m.kind === 'pole-count'
+          ? `load "${m.name}" on circuit ${written} has a ${m.poles}-pole breaker, but the circuit names ${m.positions.length} positions: a breaker takes one position per pole (${column}); check the schedule or the poles`
+          : m.kind === 'not-stacked'
+            ? `load "${m.name}" on circuit ${written}: the poles of one breaker sit one above the other in a column (${column}), not at ${written}; check the schedule`
+          : `load "${m.name}" on circuit ${written} is written ${label(m.connection)}, but ${numbering} puts circuit ${written}${m.with.length ? ` (with ${m.with.join(' and ')})` : ''} on ${m.implied.length > 1 ? m.implied.map(label).join('-') : `phase ${label(m.implied[0]!)}`}: check the schedule or the connection`;
       out.push({
-        code: 'circuit-number-phase',
-        message: `load "${m.name}" on circuit ${m.circuit} is written ${label(m.connection)}, but the usual panel numbering (odd circuits down the left, even down the right, phases ${rotation} by row) puts circuit ${m.circuit}${m.with.length ? ` (with ${m.with.join(' and ')})` : ''} on ${where}: check the schedule or the connection`,
-        // The circuit number, and the number of phases the numbering rotates through.
+        code: m.kind === 'phases' ? 'circuit-number-phase' : 'circuit-number-poles',
+        message,
+        // The first position, and the number of phases the numbering rotates through.
         value: m.circuit,
         threshold: phases.length,
       });
@@ -228,6 +263,50 @@ function breakerRule(region: Region, continuous: boolean): { share: number; word
   return {
     share: WARNING_THRESHOLDS.continuousBreakerShare,
     words: 'NEC 210.20(A): a continuous load — one that may run 3 h or more, as every load is taken unless marked continuous: false — at most 80 % of the rating, unless the breaker is listed for 100 % duty',
+  };
+}
+
+/**
+ * Route lengths of one feeder's conductors that differ by more than terminations explain: above
+ * 1.2 × the shortest and more than 1 m apart (common practice, no source; the conductors of a
+ * feeder run together). The solve takes each conductor as written, so a slip there moves the
+ * neutral's or a line's impedance silently.
+ */
+export const ROUTE_LENGTH_SPREAD = { ratio: 1.2, metres: 1 } as const;
+const METRES_PER_FOOT = 0.3048;
+
+function unequalRouteLengths(lengths: FeederRouteLengths, lineLabels: readonly string[]): BoardWarning | null {
+  const given = [...lengths.lines, lengths.neutral].filter((m): m is number => m !== null);
+  const shortest = Math.min(...given);
+  const longest = Math.max(...given);
+  if (given.length < 2 || longest <= shortest * ROUTE_LENGTH_SPREAD.ratio || longest - shortest <= ROUTE_LENGTH_SPREAD.metres) return null;
+  const shown = (m: number) => (lengths.unit === 'ft' ? `${lengthFigure(m / METRES_PER_FOOT, 0)} ft` : `${lengthFigure(m, 1)} m`);
+  const lines = lengths.lines.filter((m): m is number => m !== null);
+  const lineWords =
+    lines.length === lengths.lines.length && lines.every((m) => m === lines[0])
+      ? [`${lines.length > 1 ? 'lines' : 'line'} ${shown(lines[0]!)}`]
+      : lengths.lines.flatMap((m, k) => (m === null ? [] : [`${lineLabels[k]} ${shown(m)}`]));
+  const words = [...lineWords, ...(lengths.neutral === null ? [] : [`neutral ${shown(lengths.neutral)}`])].join(', ');
+  return {
+    code: 'feeder-lengths-unalike',
+    message: `the feeder's conductors are given different route lengths (${words}): the conductors of one feeder run together, so one length is likely a slip, and the solve takes each as written; check them`,
+    value: longest / shortest,
+    threshold: ROUTE_LENGTH_SPREAD.ratio,
+  };
+}
+
+/**
+ * The rule for a circuit that generates. North America: a source's output circuit carries its continuous
+ * output current, and its breaker and conductors are sized at 125 % of it (NEC 705.28 and 705.30 for
+ * interconnected sources, 690.8(A)/(B) for PV: from memory), whatever `continuous` says. IEC: the
+ * design current, the source's rated output current, at most the device's rated current I_n
+ * (IEC 60364-4-43, 433.1, as for a load; from memory).
+ */
+function outputCircuitRule(region: Region): { share: number; words: string } {
+  if (region !== 'north-america') return { share: 1, words: "IEC 60364-4-43: a source's output current at most the rated current I_n" };
+  return {
+    share: WARNING_THRESHOLDS.continuousBreakerShare,
+    words: "a generating circuit: NEC 705.28/705.30 (690.8 for PV), from memory: breaker and conductors at 125 % of the source's continuous output current, so at most 80 % of the rating",
   };
 }
 

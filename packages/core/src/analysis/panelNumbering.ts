@@ -11,16 +11,18 @@ import type { LoadReading } from './boardResult.js';
 
 const ROTATION = ['A', 'B', 'C'] as const;
 
+/** A breaker position's phase under the usual numbering: its row's place in the rotation. */
+const positionPhase = (position: number, phaseCount: 2 | 3) => ROTATION[(Math.ceil(position / 2) - 1) % phaseCount]!;
+
 /** The phases the usual numbering gives a breaker of `poles` poles at circuit `circuit` on a panel of `phaseCount` phases. */
 export function panelPhasesOf(circuit: number, poles: number, phaseCount: 2 | 3): string[] {
-  const row = Math.ceil(circuit / 2) - 1;
-  return Array.from({ length: poles }, (_, k) => ROTATION[(row + k) % phaseCount]!);
+  return Array.from({ length: poles }, (_, k) => positionPhase(circuit + 2 * k, phaseCount));
 }
 
 /** A circuit number as people write one on a schedule: a whole number from 1 ("7", " 12 "); anything else is not judged. */
 export const circuitNumberOf = (circuit: string | null): number | null => (circuit !== null && /^\s*[1-9]\d{0,3}\s*$/.test(circuit) ? Number(circuit) : null);
 
-/** The phases a connection puts a load on (A-N → A, C-A → C and A); null for a three-phase load, which the numbering cannot contradict. */
+/** The phases a connection puts a load on (A-N → A, C-A → C and A); null for a three-phase load, which takes every phase. */
 export function writtenPhases(connection: string): string[] | null {
   if (connection === 'ABC-star' || connection === 'ABC-delta') return null;
   return connection.split('-').filter((t) => t !== 'N');
@@ -28,35 +30,66 @@ export function writtenPhases(connection: string): string[] | null {
 
 const sameSet = (a: readonly string[], b: readonly string[]) => a.length === b.length && a.every((p) => b.includes(p));
 
-/** A load whose circuit number puts it on other phases than its connection names. */
+/**
+ * The breaker positions a circuit names: one number ("7", the first position of a breaker of any
+ * poles) or every position of a multi-pole breaker ("1,3", "2/4/6", "1 3 5", "1+3"); null for
+ * anything else, which is not judged.
+ */
+export function circuitPositionsOf(circuit: string | null): number[] | null {
+  if (circuit === null || circuit.length > 80 || !/^\s*[1-9]\d{0,3}(?:\s*[,/+&]\s*[1-9]\d{0,3}|\s+[1-9]\d{0,3})*\s*$/.test(circuit)) return null;
+  return circuit.trim().split(/[\s,/+&]+/).map(Number);
+}
+
+/**
+ * A load whose circuit number and connection disagree under the usual numbering:
+ * `phases`: the positions sit on other phases than the connection names;
+ * `pole-count`: the circuit lists more than one position, but not one per pole of the breaker;
+ * `not-stacked`: the positions listed are not one above the other in one column (n, n + 2, …),
+ * which is where a multi-pole breaker's poles sit.
+ */
 export interface CircuitNumberMismatch {
+  readonly kind: 'phases' | 'pole-count' | 'not-stacked';
   readonly name: string;
+  /** The first position. */
   readonly circuit: number;
+  /** Every position the circuit names: the one written, or the first and those a multi-pole breaker takes below it (n + 2, …). */
+  readonly positions: readonly number[];
   /** The connection as written (A/B/C). */
   readonly connection: string;
-  /** The phases the numbering gives the circuit, in row order. */
+  /** The poles the breaker has: the file's, else one per line conductor the connection uses. */
+  readonly poles: number;
+  /** The phases the numbering gives the positions, in row order. */
   readonly implied: readonly string[];
-  /** The other circuits a multi-pole breaker at `circuit` takes (n + 2, …). */
+  /** The other circuits a multi-pole breaker at `circuit` takes (n + 2, …), where the file gives one number. */
   readonly with: readonly number[];
 }
 
 /**
  * Every load whose circuit number and connection disagree under the usual numbering (worded in
  * boardWarnings.ts). `phaseCount` is the board's: 3 or 2; a single-phase board has no rotation.
+ * At most one finding per load: the positions' count first, then their place, then their phases.
  */
 export function circuitNumberMismatches(loads: readonly LoadReading[], phaseCount: number): CircuitNumberMismatch[] {
   if (phaseCount !== 2 && phaseCount !== 3) return [];
-  return loads.flatMap((load) => {
-    const circuit = circuitNumberOf(load.circuit);
-    const written = writtenPhases(load.connection);
-    if (circuit === null || written === null) return [];
-    const implied = panelPhasesOf(circuit, written.length, phaseCount);
-    if (sameSet(written, implied)) return [];
-    return [{ name: load.name, circuit, connection: load.connection, implied, with: implied.slice(1).map((_, k) => circuit + 2 * (k + 1)) }];
+  return loads.flatMap((load): CircuitNumberMismatch[] => {
+    const written = circuitPositionsOf(load.circuit);
+    if (written === null) return [];
+    const lines = writtenPhases(load.connection);
+    const poles = load.poles ?? lines?.length ?? phaseCount;
+    const circuit = written[0]!;
+    const listed = written.length > 1;
+    const positions = listed ? written : Array.from({ length: poles }, (_, k) => circuit + 2 * k);
+    const implied = positions.map((n) => positionPhase(n, phaseCount));
+    const finding = { name: load.name, circuit, positions, connection: load.connection, poles, implied, with: listed ? [] : positions.slice(1) };
+    if (listed && written.length !== poles) return [{ kind: 'pole-count', ...finding }];
+    if (listed && written.some((n, k) => n !== circuit + 2 * k)) return [{ kind: 'not-stacked', ...finding }];
+    // A three-phase load fits any three stacked positions: they take A, B and C in some order.
+    const fits = lines === null ? new Set(implied).size === implied.length : sameSet(lines, implied);
+    return fits ? [] : [{ kind: 'phases', ...finding }];
   });
 }
 
-/** Loads of one board that give the same circuit number ("7" and " 7 " alike; other text as written, trimmed). */
+/** Loads of one board that give the same circuit number ("7" and " 7 " alike, "1,3" and "1 / 3"; other text as written, trimmed). */
 export interface SharedCircuitNumber {
   readonly circuit: string;
   readonly names: readonly string[];
@@ -70,8 +103,8 @@ export function sharedCircuitNumbers(loads: readonly LoadReading[]): SharedCircu
   const byNumber = new Map<string, { circuit: string; names: string[] }>();
   for (const load of loads) {
     if (load.origin !== 'board' || load.circuit === null) continue;
-    const number = circuitNumberOf(load.circuit);
-    const key = number !== null ? String(number) : load.circuit.trim();
+    const positions = circuitPositionsOf(load.circuit);
+    const key = positions !== null ? positions.join(',') : load.circuit.trim();
     const entry = byNumber.get(key) ?? { circuit: key, names: [] };
     entry.names.push(load.name);
     byNumber.set(key, entry);

@@ -8,6 +8,7 @@ import type { ConnectionSpec, LoadModelName, SystemKind } from './boardSchema.js
 import type { PhaseId } from './systemTopology.js';
 import type { BoardConventions } from './conventions/boardConventions.js';
 import type { VoltageLimits } from './conventions/voltageLimits.js';
+import type { FeederRouteLengths } from './feederModel.js';
 
 export type { PhaseId } from './systemTopology.js';
 
@@ -78,11 +79,15 @@ export interface Board {
   readonly neutralImpedance: ComplexValue;
   /** True when the neutral conductor is broken (what-if). */
   readonly neutralOpen: boolean;
+  /** A sub-board no neutral reaches, on a system that has one (SubBoardFeeder.withoutNeutral): `hasNeutral` is then false. */
+  readonly withoutNeutral?: true;
   /** The smallest rating given for a line conductor (the weakest line), A. */
   readonly lineRatingA: number | null;
   /** Each line conductor's own rating, A, in the order of `phases` (null where none is given); absent on boards built in code, which read `lineRatingA` for every line (see `lineRatingOf`). */
   readonly lineRatingsA?: readonly (number | null)[];
   readonly neutralRatingA: number | null;
+  /** The route lengths of the feeder's conductors, where the file gives them unalike (see feederModel.ts). */
+  readonly feederUnequalLengths?: FeederRouteLengths;
   /** Rated kVA of the supply transformer; null when the source is given another way. */
   readonly transformerKVA: number | null;
   readonly loads: readonly BoardLoad[];
@@ -143,11 +148,18 @@ export interface SubBoardFeeder {
   readonly neutralImpedance: ComplexValue;
   /** True when this feeder's neutral conductor is broken (what-if). */
   readonly neutralOpen: boolean;
+  /**
+   * True where no neutral reaches the board: its feeder, or one upstream, has line conductors only (the
+   * rules then allow no load there or beyond that uses a neutral). The board is read as a 3-wire one.
+   */
+  readonly withoutNeutral?: true;
   /** The smallest rating given for a line conductor, A. */
   readonly lineRatingA: number | null;
   /** Each line conductor's own rating, A, in the order of the installation's phases (null where none is given). */
   readonly lineRatingsA?: readonly (number | null)[];
   readonly neutralRatingA: number | null;
+  /** The route lengths of its conductors, where the file gives them unalike. */
+  readonly unequalLengths?: FeederRouteLengths;
   /** The cable in words when it came from the cable library (e.g. `4×95 mm² Cu, 40 m`). */
   readonly description: string | null;
 }

@@ -59,6 +59,8 @@ export const CONDUIT_KINDS = ['non-magnetic', 'steel'] as const;
 export const STAR_POINTS = ['neutral', 'floating'] as const;
 export const PF_SENSES = ['lagging', 'leading'] as const;
 export const BREAKER_POLES = [1, 2, 3] as const;
+/** A circuit number written bare (`circuit: 7`), as panel schedules number circuits: read as its text, "7". */
+export const CIRCUIT_NUMBER = { min: 1, max: 9999 } as const;
 /** Longest voltage notation ("208Y/120") and AWG size ("4/0") read, in characters. */
 /** Longest board or circuit name: a name heads a table row and a box in the drawings. */
 export const NAME_MAX_CHARACTERS = 100;

@@ -15,6 +15,7 @@ import { groupDigits } from '../_internal/groupDigits.js';
 import { conventionsSchema } from './conventions/conventionsSchema.js';
 import { NOTATION_ACCEPTED, readVoltageNotation } from './conventions/voltageNotation.js';
 import {
+  CIRCUIT_NUMBER,
   ANGLE_DEG,
   AWG_MAX_CHARS,
   BREAKER_POLES,
@@ -181,9 +182,10 @@ export const feederSchema = z
 
 export const loadSchema = z.strictObject({
   name: nameSchema('circuit name'),
-  circuit: readableText(CIRCUIT_MAX_CHARACTERS)
+  circuit: z
+    .union([readableText(CIRCUIT_MAX_CHARACTERS), z.int().min(CIRCUIT_NUMBER.min).max(CIRCUIT_NUMBER.max).transform(String)])
     .optional()
-    .describe(`circuit number or way on the board, for the panel schedule (default: position in the list; at most ${CIRCUIT_MAX_CHARACTERS} characters)`),
+    .describe(`circuit number or way on the board, for the panel schedule (default: position in the list): text of at most ${CIRCUIT_MAX_CHARACTERS} characters ("7", "1,3" for a 2-pole breaker, "L3/2"), or a whole number ${CIRCUIT_NUMBER.min} to ${CIRCUIT_NUMBER.max}, read as its text`),
   breakerA: within(PHYSICAL_RANGES.ratingA).optional().describe('rated current of the circuit breaker or fuse, A (shown in the panel schedule)'),
   poles: z
     .literal(BREAKER_POLES)

@@ -71,6 +71,18 @@ export function describeConductor(c: ConductorSpec | undefined, feeder: FeederSp
   return `${r?.label ?? '?'} ${metal}${set}${len} at ${r ? +r.temperatureC.toFixed(1) : '?'} °C${raceway}`;
 }
 
+/**
+ * The route lengths of a feeder's conductors, m, where the file gives them unalike (each line's in the
+ * order of the phases, then the neutral's; null where a conductor is given as plain ohms, or absent).
+ * The conductors of one feeder run together, so lengths far apart are likely a slip: the warnings judge it.
+ */
+export interface FeederRouteLengths {
+  readonly lines: readonly (number | null)[];
+  readonly neutral: number | null;
+  /** How the file wrote them, for the warning's figures. */
+  readonly unit: 'm' | 'ft';
+}
+
 export interface FeederModel {
   readonly lineImpedances: ComplexValue[];
   readonly neutralImpedance: ComplexValue;
@@ -80,6 +92,23 @@ export interface FeederModel {
   readonly lineRatingsA: readonly (number | null)[];
   readonly neutralRatingA: number | null;
   readonly description: string | null;
+  /** Present only where the conductors' route lengths differ. */
+  readonly unequalLengths?: FeederRouteLengths;
+}
+
+/** Route length of a conductor as its impedance reads it: null for plain ohms (no length enters). */
+function routeLength(c: ConductorSpec | undefined, feeder: FeederSpec | undefined): number | null {
+  if (!c || (sizeOf(c) === null && c.rOhmPerKm === undefined)) return null;
+  return lengthOf(c, feeder);
+}
+
+function unequalLengths(conductors: readonly (ConductorSpec | undefined)[], neutral: ConductorSpec | undefined, feeder: FeederSpec | undefined): FeederRouteLengths | undefined {
+  const lines = conductors.map((c) => routeLength(c, feeder));
+  const neutralM = routeLength(neutral, feeder);
+  const given = [...lines, neutralM].filter((m): m is number => m !== null);
+  if (given.every((m) => m === given[0])) return undefined;
+  const inFeet = [...conductors, neutral].some((c) => c?.lengthFt !== undefined) || (feeder?.lengthFt !== undefined && feeder.lengthM === undefined);
+  return { lines, neutral: neutralM, unit: inFeet ? 'ft' : 'm' };
 }
 
 /** @param naming how the file names the phases: a description per phase uses it (`L1: …`) @defaultValue 'A/B/C' */
@@ -92,6 +121,7 @@ export function feederModel(feeder: FeederSpec | undefined, phases: readonly Pha
   const neutralWords = describeConductor(feeder?.neutral, feeder);
   const lineText = lineWords.length === 1 ? lineWords[0] : lineWords.every((w) => w !== null) ? phases.map((p) => `${labelIn(naming, p)}: ${describeConductor(conductorOf(p), feeder)}`).join('; ') : null;
   const description = lineText ? (neutralWords && neutralWords !== lineText ? `${lineText}; neutral ${neutralWords}` : lineText) : null;
+  const lengths = unequalLengths(phases.map(conductorOf), feeder?.neutral, feeder);
   return {
     lineImpedances: phases.map((p) => conductorImpedance(conductorOf(p), feeder, frequencyHz)),
     neutralImpedance: conductorImpedance(feeder?.neutral, feeder, frequencyHz),
@@ -99,5 +129,6 @@ export function feederModel(feeder: FeederSpec | undefined, phases: readonly Pha
     lineRatingsA: phases.map((p) => conductorOf(p)?.ratingA ?? null),
     neutralRatingA: feeder?.neutral?.ratingA ?? null,
     description,
+    ...(lengths ? { unequalLengths: lengths } : {}),
   };
 }

@@ -34,16 +34,39 @@ function moved(issue: InputIssue, prefix: string): InputIssue {
   return { ...issue, path, message: issue.message.startsWith(issue.path) ? `${path}${issue.message.slice(issue.path.length)}` : issue.message };
 }
 
+/** A board name as a reader sees it: spaces collapsed and trimmed, letter case ignored. */
+const foldName = (name: string) => name.trim().replace(/\s+/g, ' ').toLowerCase();
+/** What the reports call the main board's source, folded: no board may take it. */
+const RESERVED_BOARD_NAMES: readonly string[] = ['supply'];
+
 function ruleTree(spec: InstallationBaseSpec): InputIssue[] {
   const issues: InputIssue[] = [];
   const index = new Map<string, number>();
+  // Names that differ only in spaces or letter case read alike in every table and drawing, and to --board.
+  const folded = new Map<string, number>();
   let duplicated = false;
   spec.boards.forEach((b, i) => {
     const first = index.get(b.name);
+    const alike = folded.get(foldName(b.name));
     if (first !== undefined) {
       duplicated = true;
       issues.push(inputIssue('duplicate', `boards[${i}].name`, `a name not already used (boards[${first}] has it)`, b.name));
-    } else index.set(b.name, i);
+    } else if (alike !== undefined) {
+      duplicated = true;
+      issues.push(
+        inputIssue(
+          'duplicate',
+          `boards[${i}].name`,
+          `a name that differs from the other boards' in more than spaces or letter case (boards[${alike}] is ${JSON.stringify(spec.boards[alike]!.name)}): the reports and --board could not tell the two apart`,
+          b.name,
+        ),
+      );
+    } else {
+      index.set(b.name, i);
+      folded.set(foldName(b.name), i);
+    }
+    if (RESERVED_BOARD_NAMES.includes(foldName(b.name)))
+      issues.push(inputIssue('reserved_name', `boards[${i}].name`, `a name other than ${JSON.stringify(b.name)}: the reports name the main board's source "supply" (its feeder runs "from supply"), and a board of that name would read as the source`, b.name));
   });
   const mains = spec.boards.flatMap((b, i) => (b.fedFrom === undefined ? [i] : []));
   if (mains.length === 0) issues.push(inputIssue('missing', 'boards', 'one main board with no fedFrom: the board the supply feeds'));
@@ -55,8 +78,7 @@ function ruleTree(spec: InstallationBaseSpec): InputIssue[] {
   spec.boards.forEach((b, i) => {
     if (b.fedFrom === undefined) return;
     if (!index.has(b.fedFrom)) {
-      const fold = (n: string) => n.trim().replace(/\s+/g, ' ').toLowerCase();
-      const near = names.find((n) => fold(n) === fold(b.fedFrom!));
+      const near = names.find((n) => foldName(n) === foldName(b.fedFrom!));
       const hint = near === undefined ? '' : ` (${JSON.stringify(near)} differs only in spaces or letter case)`;
       issues.push(inputIssue('unknown_board', `boards[${i}].fedFrom`, `the name of a board in this installation, exactly as written: ${names.map((n) => JSON.stringify(n)).join(', ')}${hint}`, b.fedFrom));
       return;
@@ -98,19 +120,31 @@ function ruleFeederConductors(spec: InstallationBaseSpec): InputIssue[] {
   const byName = new Map(spec.boards.map((b) => [b.name, b]));
   const children = new Map<string, BoardSpec[]>();
   for (const b of spec.boards) if (b.fedFrom !== undefined) children.set(b.fedFrom, [...(children.get(b.fedFrom) ?? []), b]);
-  /** Loads on this board and every board it feeds that use the neutral (a loop is left to ruleTree). */
-  const neutralLoads = (board: BoardSpec): string[] => {
-    const names: string[] = [];
+  /** Loads on this board and every board it feeds that use the neutral (a loop is left to ruleTree), star-connected ones apart. */
+  const neutralLoads = (board: BoardSpec): { lineToNeutral: string[]; star: string[] } => {
+    const found = { lineToNeutral: [] as string[], star: [] as string[] };
     const seen = new Set<BoardSpec>();
     const stack = [board];
     while (stack.length) {
       const b = stack.pop()!;
       if (seen.has(b)) continue;
       seen.add(b);
-      names.push(...b.loads.filter(usesNeutral).map((l) => `"${l.name}" on ${b.name}`));
+      for (const l of b.loads.filter(usesNeutral)) (l.connection === 'ABC-star' ? found.star : found.lineToNeutral).push(`"${l.name}" on ${b.name}`);
       stack.push(...(children.get(b.name) ?? []));
     }
-    return names;
+    return found;
+  };
+  const listed = (names: readonly string[]) => `${names.slice(0, 3).join(', ')}${names.length > 3 ? ` and ${names.length - 3} more` : ''}`;
+  /**
+   * A star-connected load takes the neutral only because its star point is tied by default: a motor's
+   * star is not connected to a neutral, so the fix is usually `starPoint: floating`, not a conductor.
+   */
+  const missingNeutralWords = ({ lineToNeutral, star }: { lineToNeutral: string[]; star: string[] }) => {
+    const floating = `starPoint: floating on ${listed(star)} if ${star.length > 1 ? 'their star points are' : 'its star point is'} not tied to a neutral (a motor's is not)`;
+    if (lineToNeutral.length === 0)
+      return `${floating}: a star-connected load is taken as tied unless so written, and this feeder has no neutral; where the star point is tied, the neutral conductor's size with the length (e.g. neutral: { mm2: … })`;
+    const rest = star.length ? `; and ${floating}` : '';
+    return `the neutral conductor, which ${listed(lineToNeutral)} return through: its size with the length (e.g. neutral: { mm2: … }), or r: 0, x: 0 for a neutral of no impedance${rest}`;
   };
   spec.boards.forEach((b, i) => {
     const f = b.feeder;
@@ -122,14 +156,7 @@ function ruleFeederConductors(spec: InstallationBaseSpec): InputIssue[] {
     }
     if (f.line && !f.neutral && systemHasNeutral(spec.supply.system) && byName.get(b.name) === b) {
       const users = neutralLoads(b);
-      if (users.length)
-        issues.push(
-          inputIssue(
-            'missing',
-            `${path}.neutral`,
-            `the neutral conductor, which ${users.slice(0, 3).join(', ')}${users.length > 3 ? ` and ${users.length - 3} more` : ''} return through: its size with the length (e.g. neutral: { mm2: … }), or r: 0, x: 0 for a neutral of no impedance`,
-          ),
-        );
+      if (users.lineToNeutral.length || users.star.length) issues.push(inputIssue('missing', `${path}.neutral`, missingNeutralWords(users)));
     }
   });
   return issues;

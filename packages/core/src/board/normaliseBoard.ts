@@ -201,6 +201,7 @@ export function boardModelOf(spec: BoardBaseSpec): Board {
     lineRatingA: feeder.lineRatingA,
     lineRatingsA: feeder.lineRatingsA,
     neutralRatingA: feeder.neutralRatingA,
+    ...(feeder.unequalLengths ? { feederUnequalLengths: feeder.unequalLengths } : {}),
     transformerKVA: spec.supply.impedance ? null : (spec.supply.transformer?.kVA ?? null),
     loads: spec.loads.map((load, i) => loadBranches(load, i, spec, ln, ll)),
     studies: { openNeutral: spec.studies?.openNeutral ?? false },

@@ -29,6 +29,13 @@ export function normaliseInstallation(spec: InstallationBaseSpec): { installatio
   // Feeder descriptions name the phases as the file does.
   const naming = conventionsOf(main).phaseNames;
   const subBoards: SubBoard[] = new Array(spec.boards.length - 1);
+  // No neutral reaches a board whose feeder, or one upstream, gives line conductors only (a loop is the rules' to refuse).
+  const byName = new Map(spec.boards.map((b) => [b.name, b]));
+  const withoutNeutral = (b: (typeof spec.boards)[number], depth = 0): boolean =>
+    main.hasNeutral &&
+    b.fedFrom !== undefined &&
+    depth <= spec.boards.length &&
+    ((b.feeder?.line !== undefined && b.feeder.neutral === undefined) || withoutNeutral(byName.get(b.fedFrom)!, depth + 1));
   spec.boards.forEach((b, i) => {
     if (i === mainIndex) return;
     const modelled = feederModel(b.feeder, main.phases, main.frequencyHz, naming);
@@ -39,7 +46,7 @@ export function normaliseInstallation(spec: InstallationBaseSpec): { installatio
     subBoards[boardNumber[i]! - 1] = {
       name: b.name,
       fedFrom: numberOf.get(b.fedFrom!)!,
-      feeder: { ...feeder, neutralOpen: false },
+      feeder: { ...feeder, neutralOpen: false, ...(withoutNeutral(b) ? { withoutNeutral: true as const } : {}) },
       loads: board.loads,
       // Only where they differ from the main board's, which a sub-board otherwise shares.
       ...(limits && !sameLimits(limits, main.conventions?.voltageLimits) ? { voltageLimits: limits } : {}),

@@ -16,6 +16,7 @@ import {
   ANGLE_DEG,
   AWG_MAX_CHARS,
   BREAKER_POLES,
+  CIRCUIT_NUMBER,
   CONDUCTOR_MATERIALS,
   CONDUIT_KINDS,
   CONNECTIONS,
@@ -113,9 +114,11 @@ const readableText =
     return text !== NOT_THIS_SHAPE && NAME_VISIBLE.test(text as string) && NAME_WITHOUT_CONTROLS.test(text as string) ? text : NOT_THIS_SHAPE;
   };
 const nameText = readableText(NAME_MAX_CHARACTERS);
+/** boardSchema's circuit: readable text, or a whole number read as its text. */
+const circuitText = firstOf(readableText(CIRCUIT_MAX_CHARACTERS), (v) => (wholeIn(CIRCUIT_NUMBER.min, CIRCUIT_NUMBER.max)(v) === NOT_THIS_SHAPE ? NOT_THIS_SHAPE : String(v)));
 const load = strictObjectOf({
   name: required(nameText),
-  circuit: optional(readableText(CIRCUIT_MAX_CHARACTERS)),
+  circuit: optional(circuitText),
   breakerA: optional(within(R.ratingA)),
   poles: optional(oneOf(BREAKER_POLES)),
   continuous: optional(trueOrFalse),

@@ -50,7 +50,7 @@ export function boardOfInstallation(installation: Installation, index: number): 
   const place = installation.subBoards.length > 0 ? { installation: { ...installation, main }, boardIndex: index } : undefined;
   if (index === 0) return place ? { ...main, installation: place } : main;
   const sb = installation.subBoards[index - 1]!;
-  const { sourceImpedances: _s, sourceStarImpedance: _z, openDeltaCorner: _o, sourceUnits: _u, lineImpedances: _l, lineRatingsA: _r, installation: _i, ...supply } = main;
+  const { sourceImpedances: _s, sourceStarImpedance: _z, openDeltaCorner: _o, sourceUnits: _u, lineImpedances: _l, lineRatingsA: _r, installation: _i, feederUnequalLengths: _f, ...supply } = main;
   return {
     ...supply,
     name: sb.name,
@@ -61,9 +61,12 @@ export function boardOfInstallation(installation: Installation, index: number): 
     lineImpedances: sb.feeder.lineImpedances,
     neutralImpedance: sb.feeder.neutralImpedance,
     neutralOpen: sb.feeder.neutralOpen,
+    // No neutral reaches it: a 3-wire board, its phase voltages read to the centroid of the line voltages.
+    ...(sb.feeder.withoutNeutral ? { ...(main.system === 'three-phase-4wire' ? { system: 'three-phase-3wire' as const } : {}), hasNeutral: false, withoutNeutral: true as const } : {}),
     lineRatingA: sb.feeder.lineRatingA,
     ...(sb.feeder.lineRatingsA ? { lineRatingsA: sb.feeder.lineRatingsA } : {}),
     neutralRatingA: sb.feeder.neutralRatingA,
+    ...(sb.feeder.unequalLengths ? { feederUnequalLengths: sb.feeder.unequalLengths } : {}),
     loads: sb.loads,
     ...(sb.voltageLimits ? { conventions: { ...conventionsOf(main), voltageLimits: sb.voltageLimits } } : {}),
     installation: place!,

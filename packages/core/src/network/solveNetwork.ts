@@ -226,7 +226,8 @@ export function readInstallationSolution(installation: Installation, layout: Ins
       topology: topo,
       nodeVoltages,
       lineCurrents: lineCurrents[b]!,
-      neutralCurrent: neutralCurrents[b]!,
+      // A board no neutral reaches has none to read (its bar is the parent's, carrying nothing from it).
+      neutralCurrent: b > 0 && installation.subBoards[b - 1]!.feeder.withoutNeutral ? null : neutralCurrents[b]!,
       branches: branchStates[b]!,
       iterations: state.iterations,
       lastChange: state.lastChange,
@@ -236,7 +237,7 @@ export function readInstallationSolution(installation: Installation, layout: Ins
     const parent = layout.topologies[installation.subBoards[b - 1]!.fedFrom]!;
     let supplied = ZERO;
     phases.forEach((_, k) => (supplied = add(supplied, mul(at(parent.busNode[k]!), conj(lineCurrents[b]![k]!)))));
-    if (hasNeutral) supplied = sub(supplied, mul(at(parent.neutralNode!), conj(neutralCurrents[b]!)));
+    if (hasNeutral && neutralCurrents[b]) supplied = sub(supplied, mul(at(parent.neutralNode!), conj(neutralCurrents[b]!)));
     return { ...base, suppliedPower: supplied };
   });
   return { installation, boards };

@@ -40,6 +40,6 @@ export function signedPfText(pf: number | null, none = '-'): string {
  */
 export function assumedPfNote(assumedKW: readonly number[]): string {
   const exporters = assumedKW.filter((kW) => kW < 0).length;
-  const why = exporters === 0 ? ' (a resistive load)' : exporters === assumedKW.length ? ' (exporting at unity power factor)' : '';
+  const why = exporters === 0 ? ' (a resistive load)' : exporters === assumedKW.length ? ' (exporting at unity power factor)' : ' (a resistive load; where it exports, a source at unity power factor)';
   return `*: pf not given in the file, taken as 1${why}.`;
 }

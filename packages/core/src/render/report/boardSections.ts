@@ -73,7 +73,7 @@ export function sourceWords(s: BoardBaseSpec['supply'], naming: PhaseNaming = 'A
 export function systemFacts(result: BoardResult): [string, string][] {
   const b = result.board;
   return [
-    ['System', SYSTEM_WORDS[b.system] ?? b.system],
+    ['System', b.withoutNeutral ? `${b.system === 'split-phase' ? 'split-phase, two lines' : 'three-phase 3-wire'}: no neutral at this board (its feeder, or one upstream, has line conductors only)` : (SYSTEM_WORDS[b.system] ?? b.system)],
     ['Nominal voltage', `${b.nominalLineToLineV !== null ? `${fixed(b.nominalLineToLineV, 0)} V line-to-line, ` : ''}${fixed(b.nominalLineToNeutralV, 1)} V line-to-neutral`],
     result.sequences ? ['Frequency and phase sequence', `${b.frequencyHz} Hz, ${labelIn(result.conventions.phaseNames, b.sequence)}`] : ['Frequency', `${b.frequencyHz} Hz`],
   ];

@@ -22,7 +22,7 @@ export function installationCorrectionSection(effect: InstallationEffect): Repor
   const supply: [string, string][] = [
     ['From the source', `${change(s.kVA, 1)} kVA (${change(s.kvar, 1)} kvar)`],
     ['Power factor at the source, kW / |kVA|', change(s.pf, 3)],
-    ['Losses (source windings and every feeder)', change(s.lossesKW, 3, ' kW')],
+    [effect.before.boards[0]!.result.board.idealSource ? 'Losses (every feeder; the source is ideal)' : 'Losses (source windings and every feeder)', change(s.lossesKW, 3, ' kW')],
     ['Lowest voltage in the installation', change(s.lowestVoltagePercent, 1, ' % of nominal')],
   ];
   if (s.transformerLoadingPercent) supply.push(['Supply transformer loading', change(s.transformerLoadingPercent, 0, ' %')]);

@@ -89,7 +89,7 @@ export function installationDescription(spec: InstallationBaseSpec, result: Inst
       fixed(b.result.totals.kW, 2),
       fixed(b.result.source.kW, 2),
     ]),
-    note: "Own: the board's circuits. Fed: what enters the board's feeder at its sending end: the boards beyond it and the feeder's losses included (for the main board, what the source EMFs deliver, the source windings' losses included).",
+    note: `Own: the board's circuits. Fed: what enters the board's feeder at its sending end: the boards beyond it and the feeder's losses included (for the main board, what the source EMFs deliver${result.boards[0]!.result.board.idealSource ? '' : ", the source windings' losses included"}).`,
   });
   blocks.push({
     kind: 'figure',
@@ -124,7 +124,7 @@ export function feedersSection(result: InstallationResult): ReportSection {
           fixed(f.voltageDropPercent, 2),
           fixed(f.lossesKW, 3),
         ]),
-        note: 'Loading: the most loaded conductor against its rating (— without ratings). Drop: |V| at the sending end minus |V| at the board, the phase that changes most (negative: a rise), % of nominal line-to-neutral voltage; for the service feeder, from the source EMF. Loss: conductor losses (the service feeder also the source windings).',
+        note: `Loading: the most loaded conductor against its rating (— without ratings). Drop: |V| at the sending end minus |V| at the board, the phase that changes most (negative: a rise), % of nominal line-to-neutral voltage; for the service feeder, from the source EMF. Loss: conductor losses${result.boards[0]!.result.board.idealSource ? ', the source being ideal (no windings to lose power in)' : ' (the service feeder also the source windings)'}.`,
       },
     ],
   };
@@ -137,7 +137,7 @@ export function totalsSection(result: InstallationResult): ReportSection {
   const warnings = result.boards.reduce((n, b) => n + b.result.warnings.length, 0);
   const items: [string, string][] = [
     ['Loads on every board', `${fixed(t.loadKW, 2)} kW, ${fixed(t.loadKvar, 2)} kvar`],
-    ['Losses (source windings and every feeder)', `${fixed(t.lossesKW, 3)} kW`],
+    [main.board.idealSource ? 'Losses (every feeder; the source is ideal)' : 'Losses (source windings and every feeder)', `${fixed(t.lossesKW, 3)} kW`],
     ['From the source', `${fixed(t.sourceKW, 2)} kW, ${fixed(t.sourceKvar, 2)} kvar, ${fixed(sourceKVA, 2)} kVA`],
     ['Power factor at the source, kW / |kVA|', sourceKVA > 0 ? fixed(t.sourceKW / sourceKVA, 3) : '—'],
     ['Lowest voltage', `${fixed(t.lowestVoltagePercent, 1)} % of nominal, at ${t.lowestVoltageBoard} (${t.lowestVoltageAt})`],
@@ -165,8 +165,12 @@ export function boardSection(spec: InstallationBaseSpec, result: InstallationRes
       items: [
         ['Fed from', fedBy],
         ['Feeder', feederWords(spec, result, board.name)],
+        ...(board.result.board.withoutNeutral ? [['Neutral', 'none at this board: its feeder, or one upstream, has line conductors only'] as [string, string]] : []),
         // The main board's figures count from the source EMF: the source windings are in them, feeder or none.
-        [board.fedFrom === null ? 'Drop and loss from the source (source windings and service feeder)' : 'Feeder drop and loss', `${fixed(feeder.voltageDropPercent, 2)} % worst phase, ${fixed(feeder.lossesKW, 3)} kW`],
+        [
+          board.fedFrom === null ? (board.result.board.idealSource ? 'Drop and loss from the source (service feeder; the source is ideal)' : 'Drop and loss from the source (source windings and service feeder)') : 'Feeder drop and loss',
+          `${fixed(feeder.voltageDropPercent, 2)} % worst phase, ${fixed(feeder.lossesKW, 3)} kW`,
+        ],
         ['Circuits', `${own.loads.length}`],
       ],
     },
