@@ -1,5 +1,5 @@
 /** ProfileResult → the text report of `trivar profile`. */
-import { billingPowerFactorText, labellerOf, type PhaseLabeller, type ProfileResult, type ProfileSummary, type ScenarioResult, type BoardScenarios } from '@trivar/core';
+import { billingPowerFactorText, labellerOf, type PhaseLabeller, type ProfileBankResult, type ProfileResult, type ProfileSummary, type ScenarioResult, type BoardScenarios } from '@trivar/core';
 import { fixed, renderTable, section } from './textTable.js';
 import { wrapText } from './wrapText.js';
 
@@ -137,8 +137,9 @@ export function bankLines(r: { readonly bank: ProfileResult['bank']; readonly be
           ].join('; ')}`,
         ]
       : []),
-    `  controller: ${band}, switching threshold ${fixed(set.responseShare, 2)} × smallest step, delay ${set.delaySeconds} s, reconnect after ${set.reconnectSeconds} s`,
+    wrapText(`controller: ${band}, switching threshold ${fixed(set.responseShare, 2)} × smallest step, delay ${set.delaySeconds} s, reconnect after ${set.reconnectSeconds} s${reconnectBasis(set)}`, '  ', '    '),
     wrapText(b.withinInterval.words, '  ', '    '),
+    ...b.warnings.map((w) => wrapText(`warning: ${w}`, '  ', '    ')),
     '',
     renderTable(
       [{ header: 'step' }, { header: 'where', align: 'left' }, { header: 'kvar' }, { header: 'closings' }, { header: 'per year' }],
@@ -156,6 +157,13 @@ export function bankLines(r: { readonly bank: ProfileResult['bank']; readonly be
     `  largest voltage rise from the bank ${fixed(b.voltageRisePercent, 2)} % of nominal (${b.voltageRiseAt}); highest phase voltage with it ${fixed(Math.max(...b.after.voltages.map((v) => v.maxPercent)), 1)} %`,
   ];
   return lines.join('\n');
+}
+
+/** Why the step waits that long: the practice's discharge time, or the file's setting beside it. */
+function reconnectBasis(set: ProfileBankResult['settings']): string {
+  if (set.reconnectFrom === 'practice') return ` (the discharge time, ${set.dischargeRule})`;
+  if (set.reconnectFrom === 'file') return ` (profile.bank.reconnectSeconds; discharge time ${set.dischargeSeconds} s, ${set.dischargeRule})`;
+  return ` (discharge time ${set.dischargeSeconds} s, ${set.dischargeRule})`;
 }
 
 export function worstTable(s: ProfileSummary): string {

@@ -55,7 +55,7 @@ export const profileBankSchema = z
     steps: z.array(bankStepSchema).min(1).max(24).optional().describe('steps as built (skips sizing from the profile)'),
     responseShare: z.number().gt(0).max(1.5).optional().describe('switching threshold as a share of the smallest step (C/k setting); default 0.67'),
     delaySeconds: nonNegative.max(3600).optional().describe('time a need must persist before a step switches; default 30 s'),
-    reconnectSeconds: nonNegative.max(3600).optional().describe('minimum time a step stays off before reconnecting (discharge); default 60 s'),
+    reconnectSeconds: nonNegative.max(3600).optional().describe('minimum time a step stays off before reconnecting (discharge); default the discharge time of the board\'s practice: 180 s IEC (50 Hz), 60 s North-American (60 Hz)'),
     perPhase: z.boolean().optional().describe('size single-phase steps per phase instead of three-phase steps; default false'),
     measuredAt: z
       .string()

@@ -1,6 +1,7 @@
 import type { Board } from '../board/boardModel.js';
 import { conventionsOf } from '../board/conventions/boardConventions.js';
 import { labellerOf } from '../board/conventions/phaseNames.js';
+import type { CapacitorDischarge } from '../correction/capacitorDischarge.js';
 import type { StepChannel } from './bankController.js';
 
 /** Cautions printed with every profile result. */
@@ -17,11 +18,16 @@ export const PROFILE_CAUTIONS: readonly string[] = [
 export function switchingWithinIntervalWords(intervalSeconds: number, delaySeconds: number, reconnectSeconds: number): string {
   const t = `${intervalSeconds} s intervals`;
   if (delaySeconds === 0)
-    return `each interval's load is taken as steady through it; with no switching delay the controller settles at the start of each of the ${t} (a step back in only after its ${reconnectSeconds} s discharge)`;
+    return `each interval's load is taken as steady through it; with no switching delay the controller settles at the start of each of the ${t} (a step back in no sooner than ${reconnectSeconds} s after it went off)`;
   const moves = Math.floor(intervalSeconds / delaySeconds);
   if (intervalSeconds <= delaySeconds)
     return `each interval's load is taken as steady through it; with ${t} and a ${delaySeconds} s delay the controller makes at most one move per interval, shown from the interval after it`;
-  return `each interval's load is taken as steady through it; with ${t} and a ${delaySeconds} s delay the controller makes up to ${moves} moves within one (a step back in only after its ${reconnectSeconds} s discharge), and the interval shows the steps in service for most of it`;
+  return `each interval's load is taken as steady through it; with ${t} and a ${delaySeconds} s delay the controller makes up to ${moves} moves within one (a step back in no sooner than ${reconnectSeconds} s after it went off), and the interval shows the steps in service for most of it`;
+}
+
+/** A reconnection time set below the practice's discharge time: what it risks, and what to set. */
+export function shortReconnectWords(reconnectSeconds: number, discharge: CapacitorDischarge): string {
+  return `profile.bank.reconnectSeconds ${reconnectSeconds} s is shorter than the ${discharge.seconds} s discharge time (${discharge.rule}): the simulation follows the file, but a controller set so switches steps back onto capacitors that may still be charged (inrush, overvoltage, contactor and capacitor damage). Set at least ${discharge.seconds} s unless the units' discharge devices are rated for the shorter time.`;
 }
 
 /**

@@ -89,7 +89,14 @@ export interface ProfileBankResult {
     readonly responseShare: number;
     readonly delaySeconds: number;
     readonly reconnectSeconds: number;
+    /** The discharge time of the board's capacitor practice, s, and the rule it follows. */
+    readonly dischargeSeconds: number;
+    readonly dischargeRule: string;
+    /** Where the reconnection time came from: the file (profile.bank.reconnectSeconds), the practice's discharge time, or the correction study. */
+    readonly reconnectFrom: 'file' | 'practice' | 'correction-study';
   };
+  /** What the settings put at risk, in words (a reconnection time shorter than the discharge time). */
+  readonly warnings: readonly string[];
   /**
    * The switching inside an interval, where its length matters: the load taken as steady through each
    * interval, at most floor(interval ÷ delay) moves in it (null: no delay, the controller settles at once).

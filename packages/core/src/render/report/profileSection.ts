@@ -81,6 +81,7 @@ function bankBlock(b: ProfileBankResult, where = ''): ReportBlock {
       ['Hours leading with the bank', fixed(b.after.leadingHours, 1)],
       ['Largest voltage rise from the bank', `${fixed(b.voltageRisePercent, 2)} % (${b.voltageRiseAt})`],
       ['Busiest contactor reaches its typical life in', b.yearsToContactorLife === null ? '—' : `${fixed(b.yearsToContactorLife, 1)} years`],
+      ['Reconnection after a step goes off', `${b.settings.reconnectSeconds} s (discharge time ${b.settings.dischargeSeconds} s, ${b.settings.dischargeRule})`],
       ['Switching within an interval', b.withinInterval.words],
     ],
   };
@@ -92,6 +93,7 @@ function bankBlock(b: ProfileBankResult, where = ''): ReportBlock {
 export function profileSection(p: ProfileResult, charts: readonly ProfileChart[], naming: PhaseNaming = p.phaseNames): ReportSection {
   const blocks = boardBlocks({ ...p, currentsCaption: 'Conductor currents over the period' }, charts, naming, 'profile-');
   if (p.bank) blocks.push(bankBlock(p.bank));
+  if (p.bank?.warnings.length) blocks.push({ kind: 'list', tone: 'warning', items: p.bank.warnings });
   if (p.cautions.length) blocks.push({ kind: 'list', tone: 'caution', items: p.cautions });
   return { id: 'profile', title: 'Load over time', blocks };
 }
@@ -153,6 +155,7 @@ export function installationProfileSections(
   ];
   if (r.bank) {
     overview.push(bankBlock(r.bank, ` on ${r.bank.board}`));
+    if (r.bank.warnings.length) overview.push({ kind: 'list', tone: 'warning', items: r.bank.warnings });
     if (r.bank.board !== main.board && main.after)
       overview.push({
         kind: 'facts',
