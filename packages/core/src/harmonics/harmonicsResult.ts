@@ -283,6 +283,11 @@ export interface HarmonicsReport {
   readonly state: string;
   readonly lines: readonly HarmonicLineReading[];
   readonly lineToLine: readonly { readonly pair: string; readonly voltage: DistortionReading }[];
+  /**
+   * False on a board without a neutral (3-wire): its line voltages (`lines[].voltage`) are to the mean of
+   * the three, a point no conductor reaches; reports and the IEEE 519 check read the line-to-line voltages.
+   */
+  readonly hasNeutral: boolean;
   readonly neutral: NeutralCheck | null;
   /** Board figures, arithmetic over the lines: ΣP / Σ(V·I). */
   readonly powerFactor: { readonly true: number | null; readonly displacement: number | null };
@@ -308,6 +313,8 @@ export interface BoardHarmonics {
   /** Per phase: the current in the board's incoming feeder (the service feeder at the main board) and the voltage at its busbar. */
   readonly lines: readonly HarmonicLineReading[];
   readonly lineToLine: readonly { readonly pair: string; readonly voltage: DistortionReading }[];
+  /** False on a board without a neutral (3-wire): as HarmonicsReport.hasNeutral. */
+  readonly hasNeutral: boolean;
   /** The incoming feeder's neutral; its rating is the feeder's neutral rating. */
   readonly neutral: NeutralCheck | null;
   /** rms of the zero-sequence orders (3, 9, 15…) in the feeder neutral, A; null without a neutral. */

@@ -89,10 +89,10 @@ export const harmonicsAssumptionText = {
     } not covered (${joint.networkStates} networks)`,
 };
 
-/** Shown with every harmonics study, in the region's words ("earth" or "ground"). */
-export const harmonicsCautions = (ground: 'earth' | 'ground'): readonly string[] => [
+/** Shown with every harmonics study, in the region's words ("earth" or "ground"); the neutral's only where a board has one. */
+export const harmonicsCautions = (ground: 'earth' | 'ground', anyNeutral = true): readonly string[] => [
   'Harmonic resonance can overload capacitors until they fail, rupture or catch fire; check every step combination before energising a bank.',
-  'Neutrals of boards with non-linear loads can overheat without any protective device tripping; measure neutral current with a true-rms meter.',
+  ...(anyNeutral ? ['Neutrals of boards with non-linear loads can overheat without any protective device tripping; measure neutral current with a true-rms meter.'] : []),
   'Built-in spectra are typical values, not measurements: measure the real loads (true-rms, per order) before buying or rebuilding a bank.',
   `Capacitors stay charged after disconnection: wait the rated discharge time, then short every terminal together and to ${ground} before touching.`,
   'These results support, and do not replace, the judgement of a licensed professional and the local electrical codes.',

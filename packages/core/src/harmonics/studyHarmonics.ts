@@ -25,7 +25,7 @@ import type { HarmonicsBoardSpec } from './harmonicsSpec.js';
 import { harmonicsCautions, harmonicsWarningText, neutralPractice } from './harmonicsWording.js';
 import type { CapacitorDuty, DutyCase, DutyCondition, HarmonicLineReading, HarmonicsReport, HarmonicsWarning, NeutralCheck, ResonanceScan, TddCheck, VoltageDistortionCheck } from './harmonicsResult.js';
 import { conventionsOf } from '../board/conventions/boardConventions.js';
-import { regionWords } from '../board/conventions/regionWords.js';
+import { regionWords, type RegionWords } from '../board/conventions/regionWords.js';
 import { labelIn } from '../board/conventions/phaseNames.js';
 import { ROUND_OFF_MARGIN } from '../analysis/boardWarnings.js';
 
@@ -195,13 +195,26 @@ export function capacitorDuty(board: Board, model: HarmonicModel, solveOrders: D
   };
 }
 
+/**
+ * How the source is modelled where the file gives more than a symmetric impedance: an open delta has no
+ * star point (two windings meeting at one line, no neutral, so no zero-sequence path); a star source's
+ * star point is earthed through the zero-sequence impedance the file gives.
+ */
+function sourceAssumptions(board: Board, words: RegionWords): string[] {
+  const alike = 'in the solve at each order and in the frequency scan alike';
+  if (board.openDeltaCorner) {
+    const corner = labelIn(conventionsOf(board).phaseNames, board.openDeltaCorner);
+    return [`the source an open delta as the file gives it: two windings meeting at line ${corner}, each with its own impedance, and no star point or neutral, so no zero-sequence current flows; ${alike}`];
+  }
+  if (board.sourceStarImpedance) return [`${words.sourceNeutralPoint} ${words.groundWord}ed through the zero-sequence impedance the file gives, ${alike}`];
+  return [];
+}
+
 export function assumptions(board: Board, model: HarmonicModel, otherBanks = false): string[] {
   const forms = new Set(model.loads.flatMap((l) => (l.kind === 'linear' ? [l.form] : [])));
   const words = regionWords(conventionsOf(board).region, board.system);
   return [
-    ...(board.sourceStarImpedance || board.openDeltaCorner
-      ? [`${words.sourceNeutralPoint} ${words.groundWord}ed as the file gives it (zero-sequence impedance or open delta), in the solve at each order and in the frequency scan alike`]
-      : []),
+    ...sourceAssumptions(board, words),
     forms.size
       ? `linear loads as ${[...forms].join(' and ')} R/X from their solved fundamental values (rated loads default to parallel R ‖ jX, loads in ohms and capacitors keep series form)`
       : 'no linear loads: every load is a harmonic source (its fundamental draws as solved)',
@@ -299,7 +312,7 @@ export function analyseHarmonics(board: Board, model: HarmonicModel, options: Ha
   const scan = scanResonance(fundamental, model, { ...checkedOrders(ordersPresent(model)), ...(options.scanOrders ? { grid: options.scanOrders } : {}) });
   const duty = capacitorDuty(board, model, boardDutySolver(networks, options.solve));
   const phaseNames = conventionsOf(board).phaseNames;
-  const voltageDistortion = checkVoltageDistortion(lines, lineToLine);
+  const voltageDistortion = checkVoltageDistortion(lines, lineToLine, board.hasNeutral);
   // Warnings name phases, pairs and branches the way the board file names them (L1-N or A-N).
   const warnings = harmonicsWarnings({ scan, neutral, voltageDistortion, duty, tdd, splitPhase: board.system === 'split-phase' }, (term) => labelIn(phaseNames, term));
   return {
@@ -310,6 +323,7 @@ export function analyseHarmonics(board: Board, model: HarmonicModel, options: Ha
     state: model.bank ? `every bank step on (${combinationLabel(model.bank, model.bank.stepLoads.map(() => true))})` : 'as given',
     lines,
     lineToLine,
+    hasNeutral: board.hasNeutral,
     neutral,
     powerFactor: boardPowerFactor(orders, lines),
     tdd,
@@ -319,7 +333,7 @@ export function analyseHarmonics(board: Board, model: HarmonicModel, options: Ha
     spectra: spectraOf(board, model),
     assumptions: assumptions(board, model),
     warnings,
-    cautions: harmonicsCautions(regionWords(conventionsOf(board).region, board.system).groundWord),
+    cautions: harmonicsCautions(regionWords(conventionsOf(board).region, board.system).groundWord, board.hasNeutral),
   };
 }
 
