@@ -58,8 +58,13 @@ export function thresholdLines(s: ProfileSummary, r: Pick<ProfileResult, 'limits
   const l = r.limits;
   const from = l.voltageLimitsFrom === 'profile.limits' ? 'profile.limits' : `the board's limits, ${l.voltageLimitsFrom}`;
   const out = [`below ${limitPercent(l.voltageLowPercent)} % voltage: ${hours(s.hoursVoltageLow)} h · above ${limitPercent(l.voltageHighPercent)} %: ${hours(s.hoursVoltageHigh)} h (${from})`];
-  if (s.unbalance)
-    out.push(`voltage unbalance |V2|/|V1|: peak ${fixed(s.unbalance.maxPercent, 2)} % at ${s.unbalance.maxAt}, P95 ${fixed(s.unbalance.p95Percent, 2)} %, above ${fixed(l.unbalancePercent, 1)} %: ${hours(s.unbalance.hoursAbove)} h`);
+  if (s.unbalance) {
+    // The board region's index and limit (|V2|/|V1| and 2 % IEC, the line-to-line deviation and 3 % ANSI C84.1).
+    const u = l.unbalance;
+    const threshold = l.unbalanceFrom === 'profile.limits' ? 'profile.limits' : u.source;
+    out.push(`${u.name}: peak ${fixed(s.unbalance.maxPercent, 2)} % at ${s.unbalance.maxAt}, P95 ${fixed(s.unbalance.p95Percent, 2)} %, above ${fixed(l.unbalancePercent, 1)} % (${threshold}): ${hours(s.unbalance.hoursAbove)} h`);
+    if (u.definition) out.push(`  (${u.name}: ${u.definition})`);
+  }
   out.push(`import at a leading power factor: ${hours(s.leadingHours)} h`);
   const lines = out.map((x) => `  ${x}`);
   if (s.hoursCollapsed > 0)
@@ -171,7 +176,7 @@ export function worstTable(s: ProfileSummary): string {
   const rows = worst.map((w) => [w.at, fixed(w.maxLineA, 1), fixed(w.neutralA, 1), w.unbalancePercent === null ? '-' : fixed(w.unbalancePercent, 2)]);
   const table = renderTable([{ header: 'interval', align: 'left' }, { header: 'highest line A' }, { header: 'neutral A' }, { header: 'unbalance %' }], rows);
   // Sequence components need three phases: on a split-phase or single-phase board there is no |V2|/|V1| (solve leaves it blank too).
-  return worst.some((w) => w.unbalancePercent === null) ? `${table}\n  (unbalance %: |V2|/|V1|, defined for three phases only; - on this board)` : table;
+  return worst.some((w) => w.unbalancePercent === null) ? `${table}\n  (unbalance %: defined for three phases only; - on this board)` : table;
 }
 
 /** @param label the board file's phase labels (`labellerOf(conventionsOf(board).phaseNames)`) */

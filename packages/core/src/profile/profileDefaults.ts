@@ -1,11 +1,10 @@
 /**
  * Every default of the profile study, with its reason, in one place. The time a step stays off before it
  * is switched on again defaults to the discharge time of the board's capacitor practice, the correction
- * study's one definition (correction/capacitorDischarge.ts).
+ * study's one definition (correction/capacitorDischarge.ts); the voltage unbalance threshold, and the index
+ * it judges, is the board region's (board/conventions/unbalanceLimits.ts).
  */
 export const PROFILE_DEFAULTS = {
-  /** IEC 61000-2-2 / EN 50160 compatibility level for |V2|/|V1| (from memory; METHODS §3). */
-  unbalancePercent: 2,
   /** Common demand-meter window (common practice, no source). */
   demandWindowMinutes: 15,
   /** A usual tariff target; the correction study uses the same default. */

@@ -69,7 +69,9 @@ export const profileBankSchema = z
 
 export const profileLimitsSchema = z
   .strictObject({
-    unbalancePercent: positive.optional().describe('voltage unbalance threshold |V2|/|V1|, %; default 2'),
+    unbalancePercent: positive
+      .optional()
+      .describe("voltage unbalance threshold, %, on the board region's index: |V2|/|V1| for IEC boards (default 2), the largest deviation of a line-to-line voltage from their average for North-American boards (default 3, ANSI C84.1)"),
     neutralA: positive.optional().describe('neutral current threshold, A; default the neutral rating (none where the neutral has no rating)'),
     voltageLowPercent: positive.optional().describe("lowest acceptable phase voltage, % of nominal; default the board's voltage limits (conventions.voltageLimits, or the board's own in an installation)"),
     voltageHighPercent: positive.optional().describe("highest acceptable phase voltage, % of nominal; default the board's voltage limits (conventions.voltageLimits, or the board's own in an installation)"),

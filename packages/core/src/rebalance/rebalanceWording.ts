@@ -22,12 +22,18 @@ function extremesWords(check: VoltageCheck): string {
 /** A score with the digits the text report gives it (a near-zero neutral still shows). */
 const scoreWords = (x: number) => (Math.abs(x) >= 100 ? x.toFixed(1) : Math.abs(x) >= 1 ? x.toFixed(2) : x.toFixed(3));
 
-export const REBALANCE_CAUTIONS: readonly string[] = [
+const SHARED_NEUTRAL_CAUTION = 'Circuits that share a neutral (multi-wire branch circuits) must stay on different lines, and keep their common disconnect: check before moving either.';
+
+/** The cautions of a rebalancing study; the shared-neutral one only where a board circuits may move on has a neutral. */
+export const rebalanceCautions = (anyNeutral: boolean): readonly string[] => [
   'Moving a circuit is work on live-capable equipment: isolate and prove dead first; the work is for a qualified electrician under local codes and licensed practice.',
-  'Circuits that share a neutral (multi-wire branch circuits) must stay on different lines, and keep their common disconnect: check before moving either.',
+  ...(anyNeutral ? [SHARED_NEUTRAL_CAUTION] : []),
   'Keep residual-current and arc-fault devices with their circuits, and update the circuit chart and labels after the work.',
-  'Figures assume the stated load conditions; measure the line and neutral currents after the work.',
+  `Figures assume the stated load conditions; measure the ${anyNeutral ? 'line and neutral currents' : 'line currents'} after the work.`,
 ];
+
+/** Every caution a rebalancing report may carry (a board with a neutral). */
+export const REBALANCE_CAUTIONS: readonly string[] = rebalanceCautions(true);
 
 export const REBALANCE_NOTES = {
   banksInService: (banks: readonly string[]) =>

@@ -3,6 +3,7 @@
  * installation: an overview (a row per board, the feeder loading, the bank) and a section per board
  * with the same blocks a board's study has, its currents being its incomer's.
  */
+import type { VoltageUnbalanceLimit } from '../../board/conventions/unbalanceLimits.js';
 import { bankInServiceWords, BANKS_IN_SERVICE_BASIS } from '../../analysis/banksInServiceWords.js';
 import type { ProfileBankResult, ProfileResult } from '../../profile/studyProfile.js';
 import type { InstallationProfileResult } from '../../profile/studyInstallationProfile.js';
@@ -37,6 +38,9 @@ interface BoardProfileView {
 }
 
 /** The facts, the currents and the voltages of one board, then its charts. */
+/** The board region's unbalance index, capitalised, with its definition where its name does not say it. */
+const unbalanceWords = (u: VoltageUnbalanceLimit) => `${u.name[0]!.toUpperCase()}${u.name.slice(1)}${u.definition ? ` (${u.definition}; ${u.source})` : ` (${u.source})`}`;
+
 function boardBlocks(p: BoardProfileView, charts: readonly ProfileChart[], naming: PhaseNaming, figurePrefix: string): ReportBlock[] {
   const s = p.before;
   const label = labellerOf(naming);
@@ -49,7 +53,14 @@ function boardBlocks(p: BoardProfileView, charts: readonly ProfileChart[], namin
         ['Reactive energy lagging / leading', `${fixed(s.energy.kvarhLagging, 0)} kvarh / ${fixed(s.energy.kvarhLeading, 0)} kvarh`],
         ['Billing power factor', billingPowerFactorText(s.energy.billingPf)],
         ['Hours importing at a leading PF', fixed(s.leadingHours, 1)],
-        ...((s.unbalance ? [['Voltage unbalance, highest / 95th percentile', `${fixed(s.unbalance.maxPercent, 2)} % (${s.unbalance.maxAt}) / ${fixed(s.unbalance.p95Percent, 2)} %`]] : []) as [string, string][]),
+        ...((s.unbalance
+          ? [
+              [
+                `${unbalanceWords(p.limits.unbalance)}, highest / 95th percentile / hours above ${limitPercent(p.limits.unbalancePercent)} %`,
+                `${fixed(s.unbalance.maxPercent, 2)} % (${s.unbalance.maxAt}) / ${fixed(s.unbalance.p95Percent, 2)} % / ${fixed(s.unbalance.hoursAbove, 1)}`,
+              ],
+            ]
+          : []) as [string, string][]),
         [`Hours below ${limitPercent(p.limits.voltageLowPercent)} % / above ${limitPercent(p.limits.voltageHighPercent)} % (${bandWords(p.limits)})`, `${fixed(s.hoursVoltageLow, 1)} / ${fixed(s.hoursVoltageHigh, 1)}`],
         ...(s.hoursCollapsed > 0 ? ([['Hours with a phase below 50 % of nominal (the supply cannot carry the load: a collapse)', fixed(s.hoursCollapsed, 2)]] as [string, string][]) : []),
       ],
