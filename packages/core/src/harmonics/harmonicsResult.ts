@@ -44,10 +44,23 @@ export interface NeutralCheck {
   readonly triplenSharePercent: number | null;
   /** Neutral rms / largest line rms. */
   readonly ratioToPhase: number | null;
+  /**
+   * What makes the neutral carry as much as the largest line, where it does: the phase loading (its
+   * fundamental alone reaches the largest line's, the loads sitting on one line), triplen orders adding
+   * from several lines (they are at least 10 % of its rms² and more than any one line carries), both, or
+   * neither alone (other harmonic orders). With the figures the words quote, A. Null where the neutral is
+   * below the largest line.
+   */
+  readonly aboveLine: {
+    readonly cause: 'phase-loading' | 'triplen' | 'both' | 'harmonics';
+    readonly neutralFundamentalA: number;
+    readonly lineFundamentalA: number;
+    readonly neutralTriplenA: number;
+    readonly lineTriplenA: number;
+  } | null;
   readonly ratingA: number | null;
   readonly loadingPercent: number | null;
   readonly overloaded: boolean;
-  /** The usual sizing practice for neutrals feeding non-linear loads, in words. */
   /** The usual sizing practice for this neutral; null on a three-phase board whose neutral carries little triplen current. */
   readonly practice: string | null;
 }

@@ -23,7 +23,7 @@ import { checkVoltageDistortion } from './voltageDistortion.js';
 import { HARMONICS_DEFAULTS } from './harmonicsDefaults.js';
 import type { HarmonicsBoardSpec } from './harmonicsSpec.js';
 import { harmonicsCautions, harmonicsWarningText, neutralPractice } from './harmonicsWording.js';
-import type { CapacitorDuty, DutyCase, DutyCondition, HarmonicLineReading, HarmonicsReport, HarmonicsWarning, NeutralCheck, ResonanceScan, TddCheck, VoltageDistortionCheck } from './harmonicsResult.js';
+import type { CapacitorDuty, DistortionReading, DutyCase, DutyCondition, HarmonicLineReading, HarmonicsReport, HarmonicsWarning, NeutralCheck, ResonanceScan, TddCheck, VoltageDistortionCheck } from './harmonicsResult.js';
 import { conventionsOf } from '../board/conventions/boardConventions.js';
 import { regionWords, type RegionWords } from '../board/conventions/regionWords.js';
 import { labelIn } from '../board/conventions/phaseNames.js';
@@ -64,10 +64,12 @@ export function neutralCheck(board: Board, orders: readonly OrderSolution[], lin
   // The three-phase sizing note speaks of triplen currents: given where they are a real share of the neutral's.
   const threePhase = board.phases.length === 3;
   const practice = threePhase && (triplenSharePercent ?? 0) < NEUTRAL_NOTE_TRIPLEN_PERCENT ? null : neutralPractice(board.system);
+  const ratioToPhase = largest > 0 ? current.rms / largest : null;
   return {
     current,
     triplenSharePercent,
-    ratioToPhase: largest > 0 ? current.rms / largest : null,
+    ratioToPhase,
+    aboveLine: ratioToPhase !== null && ratioToPhase > 1 + ROUND_OFF_MARGIN ? aboveLineCause(current.fundamental, Math.sqrt(triplen), triplenSharePercent ?? 0, lines) : null,
     ratingA: rating,
     loadingPercent: rating ? (100 * current.rms) / rating : null,
     overloaded: rating !== null && current.rms > rating,
@@ -77,6 +79,23 @@ export function neutralCheck(board: Board, orders: readonly OrderSolution[], lin
 
 /** Share of the neutral's rms² in triplen orders, %, below which the triplen sizing note is left out (common practice, no source). */
 const NEUTRAL_NOTE_TRIPLEN_PERCENT = 10;
+
+const triplenRms = (d: DistortionReading) => Math.sqrt(d.orders.filter((o) => o.order % 3 === 0).reduce((s, o) => s + o.magnitude ** 2, 0));
+
+/**
+ * Why the neutral carries as much as the largest line. Its fundamental reaching the largest line's means
+ * the loads sit on one line and the neutral brings that current back: the phase loading. Triplen orders
+ * add from several lines only where the neutral carries more of them than any one line, and they matter
+ * only as a real share of its rms (NEUTRAL_NOTE_TRIPLEN_PERCENT).
+ */
+function aboveLineCause(neutralFundamentalA: number, neutralTriplenA: number, triplenSharePercent: number, lines: readonly HarmonicLineReading[]): NonNullable<NeutralCheck['aboveLine']> {
+  const lineFundamentalA = Math.max(...lines.map((l) => l.current.fundamental));
+  const lineTriplenA = Math.max(...lines.map((l) => triplenRms(l.current)));
+  const phaseLoading = neutralFundamentalA >= lineFundamentalA * (1 - ROUND_OFF_MARGIN);
+  const triplenAdd = triplenSharePercent >= NEUTRAL_NOTE_TRIPLEN_PERCENT && neutralTriplenA > lineTriplenA * (1 + ROUND_OFF_MARGIN);
+  const cause = phaseLoading ? (triplenAdd ? 'both' : 'phase-loading') : triplenAdd ? 'triplen' : 'harmonics';
+  return { cause, neutralFundamentalA, lineFundamentalA, neutralTriplenA, lineTriplenA };
+}
 
 export function tddCheck(board: Board, model: HarmonicModel, lines: readonly HarmonicLineReading[]): TddCheck | null {
   if (!model.pcc) return null;
@@ -258,7 +277,7 @@ export function harmonicsWarnings({ scan, neutral, voltageDistortion, duty, tdd,
   if (neutral?.overloaded) warn('neutral-overload', harmonicsWarningText.neutralOverload(neutral.current.rms, neutral.ratingA!), neutral.current.rms, neutral.ratingA);
   // Above 1 by more than round-off: on a single-phase board the neutral is the line's return, 1 ± 1e-16.
   if (neutral?.ratioToPhase !== null && neutral?.ratioToPhase !== undefined && neutral.ratioToPhase > 1 + ROUND_OFF_MARGIN)
-    warn('neutral-above-phase', harmonicsWarningText.neutralAbovePhase(neutral.ratioToPhase, splitPhase), neutral.ratioToPhase, 1);
+    warn('neutral-above-phase', harmonicsWarningText.neutralAbovePhase(neutral, splitPhase), neutral.ratioToPhase, 1);
   if (voltageDistortion) {
     const { individualLimitPercent: individual, thdLimitPercent: thdLimit } = voltageDistortion;
     for (const bus of voltageDistortion.buses)
