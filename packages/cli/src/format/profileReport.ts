@@ -1,5 +1,5 @@
 /** ProfileResult → the text report of `trivar profile`. */
-import { billingPowerFactorText, labellerOf, type PhaseLabeller, type ProfileBankResult, type ProfileResult, type ProfileSummary, type ScenarioResult, type BoardScenarios } from '@trivar/core';
+import { billingPowerFactorText, contactorLifeWords, labellerOf, type PhaseLabeller, type ProfileBankResult, type ProfileResult, type ProfileSummary, type ScenarioResult, type BoardScenarios } from '@trivar/core';
 import { fixed, renderTable, section } from './textTable.js';
 import { wrapText } from './wrapText.js';
 
@@ -35,7 +35,7 @@ export function currentTable(s: ProfileSummary, label: PhaseLabeller): string {
     s.conductors.map((c) => [
       c.conductor === 'N' ? 'neutral' : `line ${label(c.conductor)}`,
       fixed(c.maxA, 1),
-      c.maxAt,
+      c.maxAt ?? '-',
       fixed(c.p99A, 1),
       fixed(c.p95A, 1),
       c.ratingA === null ? '-' : fixed(c.ratingA, 0),
@@ -151,7 +151,7 @@ export function bankLines(r: { readonly bank: ProfileResult['bank']; readonly be
       b.steps.map((s) => [String(s.step), b.placeWords[s.channel] ?? s.channel, fixed(s.kvar, 1), thousands(s.closings), thousands(s.closingsPerYear)]),
     ),
     `  typical limit ${thousands(b.operationsPerYearLimit)} operations a year per step (IEC 60831-1 practice); a capacitor contactor lasts about ${thousands(b.contactorLifeOperations)} operations${
-      b.yearsToContactorLife === null ? '' : ` — the busiest step reaches that in ${fixed(b.yearsToContactorLife, 1)} years`
+      b.yearsToContactorLife === null ? '' : ` — the busiest step ${contactorLifeWords(b.yearsToContactorLife)}`
     }`,
     `  billing power factor ${billingPowerFactorText(r.before.energy.billingPf)} → ${billingPowerFactorText(b.after.energy.billingPf)}; leading import ${hours(r.before.leadingHours)} h → ${hours(b.after.leadingHours)} h`,
     ...(b.belowTarget && b.belowTarget.hours > 0

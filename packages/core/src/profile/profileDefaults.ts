@@ -21,4 +21,10 @@ export const PROFILE_DEFAULTS = {
   operationsPerYearLimit: 5000,
   /** A capacitor-duty contactor's electrical life, order of 100 000 operations (from memory). */
   contactorLifeOperations: 100_000,
+  /**
+   * The horizon a time to the contactor's life is given within, years: longer than a capacitor bank is
+   * expected to stay in service, so a figure beyond it is no forecast and is said to lie beyond it
+   * (common practice, no source).
+   */
+  contactorLifeHorizonYears: 50,
 } as const;

@@ -3,6 +3,7 @@ import { conventionsOf } from '../board/conventions/boardConventions.js';
 import { labellerOf } from '../board/conventions/phaseNames.js';
 import type { CapacitorDischarge } from '../correction/capacitorDischarge.js';
 import type { StepChannel } from './bankController.js';
+import { PROFILE_DEFAULTS } from './profileDefaults.js';
 
 /** Cautions printed with every profile result. */
 export const PROFILE_CAUTIONS: readonly string[] = [
@@ -23,6 +24,18 @@ export function switchingWithinIntervalWords(intervalSeconds: number, delaySecon
   if (intervalSeconds <= delaySeconds)
     return `each interval's load is taken as steady through it; with ${t} and a ${delaySeconds} s delay the controller makes at most one move per interval, shown from the interval after it`;
   return `each interval's load is taken as steady through it; with ${t} and a ${delaySeconds} s delay the controller makes up to ${moves} moves within one (a step back in no sooner than ${reconnectSeconds} s after it went off), and the interval shows the steps in service for most of it`;
+}
+
+/**
+ * When the busiest step's contactor reaches its typical life (`what`: how the sentence names that life),
+ * in words: "reaches that in 11.4 years", or past the horizon (PROFILE_DEFAULTS.contactorLifeHorizonYears)
+ * "does not reach that within 50 years", since a switching rate measured over the data says nothing of
+ * the equipment centuries on.
+ */
+export function contactorLifeWords(years: number | null, what = 'that'): string | null {
+  if (years === null) return null;
+  const horizon = PROFILE_DEFAULTS.contactorLifeHorizonYears;
+  return years > horizon ? `does not reach ${what} within ${horizon} years` : `reaches ${what} in ${years.toFixed(1)} years`;
 }
 
 /** A reconnection time set below the practice's discharge time: what it risks, and what to set. */

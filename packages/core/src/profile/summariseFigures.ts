@@ -16,7 +16,8 @@ export interface ConductorSummary {
   /** A, B, C or N. */
   readonly conductor: string;
   readonly maxA: number;
-  readonly maxAt: string;
+  /** When the peak was; null for a conductor that carries no current in any interval (it has no peak). */
+  readonly maxAt: string | null;
   readonly p95A: number;
   readonly p95At: string;
   readonly p99A: number;
@@ -115,7 +116,7 @@ export function summariseFigures(f: IntervalFigures, ctx: SummaryContext): Profi
     return {
       conductor: name,
       maxA: max.value,
-      maxAt: ctx.label(max.index),
+      maxAt: max.value > 0 ? ctx.label(max.index) : null,
       p95A: p95!.value,
       p95At: ctx.label(p95!.index),
       p99A: p99!.value,

@@ -10,6 +10,7 @@ import type { InstallationProfileResult } from '../../profile/studyInstallationP
 import type { ProfileSummary, ResolvedLimits } from '../../profile/summariseFigures.js';
 import { fixed } from '../svgText.js';
 import { billingPowerFactorText } from '../../profile/billingPowerFactor.js';
+import { contactorLifeWords } from '../../profile/profileWording.js';
 import type { ReportBlock, ReportSection } from './reportDocument.js';
 import { labellerOf, type PhaseNaming } from '../../board/conventions/phaseNames.js';
 
@@ -69,7 +70,7 @@ function boardBlocks(p: BoardProfileView, charts: readonly ProfileChart[], namin
       kind: 'table',
       caption: p.currentsCaption,
       columns: [{ label: 'Conductor' }, { label: 'Highest A', align: 'right' }, { label: 'When' }, { label: '99th % A', align: 'right' }, { label: '95th % A', align: 'right' }, { label: 'Rating A', align: 'right' }, { label: 'Hours over', align: 'right' }],
-      rows: s.conductors.map((c) => [label(c.conductor), fixed(c.maxA, 1), c.maxAt, fixed(c.p99A, 1), fixed(c.p95A, 1), orDash(c.ratingA, 0), orDash(c.hoursAboveLimit, 1)]),
+      rows: s.conductors.map((c) => [label(c.conductor), fixed(c.maxA, 1), c.maxAt ?? '—', fixed(c.p99A, 1), fixed(c.p95A, 1), orDash(c.ratingA, 0), orDash(c.hoursAboveLimit, 1)]),
       note: 'Hours over: above the conductor rating; for the neutral, above the neutral limit of the study.',
     },
     {
@@ -91,7 +92,7 @@ function bankBlock(b: ProfileBankResult, where = ''): ReportBlock {
       ['Billing power factor with the bank', billingPowerFactorText(b.after.energy.billingPf)],
       ['Hours leading with the bank', fixed(b.after.leadingHours, 1)],
       ['Largest voltage rise from the bank', `${fixed(b.voltageRisePercent, 2)} % (${b.voltageRiseAt})`],
-      ['Busiest contactor reaches its typical life in', b.yearsToContactorLife === null ? '—' : `${fixed(b.yearsToContactorLife, 1)} years`],
+      ['Busiest step’s contactor and its typical life', contactorLifeWords(b.yearsToContactorLife, 'it') ?? '—'],
       ['Reconnection after a step goes off', `${b.settings.reconnectSeconds} s (discharge time ${b.settings.dischargeSeconds} s, ${b.settings.dischargeRule})`],
       ['Switching within an interval', b.withinInterval.words],
     ],
