@@ -25,7 +25,7 @@ import { solveLinearClosedForm } from '../packages/core/src/profile/linearClosed
 /** Figures on shared memory, so two worker threads can each fill half. */
 function sharedFigures(n: number): IntervalFigures {
   const col = () => new Float64Array(new SharedArrayBuffer(8 * n));
-  return { count: n, lineA: [col(), col(), col()], neutralA: col(), phaseV: [col(), col(), col()], lineToLineV: [col(), col(), col()], phaseW: [col(), col(), col()], phaseVar: [col(), col(), col()], unbalancePercent: col() };
+  return { count: n, lineA: [col(), col(), col()], neutralA: col(), phaseV: [col(), col(), col()], lineToLineV: [col(), col(), col()], phaseW: [col(), col(), col()], phaseVar: [col(), col(), col()], unbalancePercent: col(), lineDeviationPercent: col() };
 }
 
 if (!isMainThread) {

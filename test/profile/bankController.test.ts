@@ -137,7 +137,7 @@ describe('hours below the target with a banded bank', () => {
     // 30/5: in target. 30/10: below, 10 − 10 = 0 < 3.01: coarse. 30/20: below, 20 − 10 = 10: not coarse. −5/10: export, not counted.
     const col = (xs: number[]) => Float64Array.from(xs, (x) => x * 1000);
     const zero = new Float64Array(4);
-    const f = { count: 4, lineA: [zero], neutralA: zero, phaseV: [zero], lineToLineV: [], phaseW: [col([30, 30, 30, -5])], phaseVar: [col([5, 10, 20, 10])], unbalancePercent: zero };
+    const f = { count: 4, lineA: [zero], neutralA: zero, phaseV: [zero], lineToLineV: [], phaseW: [col([30, 30, 30, -5])], phaseVar: [col([5, 10, 20, 10])], unbalancePercent: zero, lineDeviationPercent: zero };
     expect(hoursBelowTarget(f, 0.97, 0.995, 10, 900_000)).toEqual({ hours: 0.5, stepTooCoarseHours: 0.25 });
   });
 });

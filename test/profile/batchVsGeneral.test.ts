@@ -109,7 +109,11 @@ function compareInterval(kernel: BatchKernel, board: Board, scales: readonly num
     expectClose(figures.phaseW[k]![0]!, p.kW * 1000, { rel: REL, abs: REL * sMax }, `${kernel.path} phase ${p.phase} W`);
     expectClose(figures.phaseVar[k]![0]!, p.kvar * 1000, { rel: REL, abs: REL * sMax }, `${kernel.path} phase ${p.phase} var`);
   });
-  if (result.unbalance) expectClose(figures.unbalancePercent[0]!, result.unbalance.voltageFactorPercent, { rel: 1e-7, abs: 1e-9 }, `${kernel.path} unbalance`);
+  if (result.unbalance) {
+    expectClose(figures.unbalancePercent[0]!, result.unbalance.voltageFactorPercent, { rel: 1e-7, abs: 1e-9 }, `${kernel.path} unbalance`);
+    // The ANSI C84.1 index, the solve's line-voltage unbalance rate.
+    expectClose(figures.lineDeviationPercent[0]!, result.unbalance.lineVoltageRatePercent, { rel: 1e-7, abs: 1e-9 }, `${kernel.path} line-to-line deviation`);
+  }
 }
 
 describe('batch kernels agree with solveNetwork to 1e-9 relative', () => {
@@ -199,6 +203,7 @@ describe('batch kernels agree with solveNetwork to 1e-9 relative', () => {
             ]),
             [fast.neutralA, slow.neutralA, 'neutral'],
             [fast.unbalancePercent, slow.unbalancePercent, 'unbalance'],
+            [fast.lineDeviationPercent, slow.lineDeviationPercent, 'line-to-line deviation'],
           ];
           for (const [a, b, what] of pairs) {
             const scale = Math.max(1, ...b.map(Math.abs));

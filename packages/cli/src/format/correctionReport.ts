@@ -154,7 +154,7 @@ function controllerLines(c: ControllerSettings): string[] {
     `outputs: ${c.outputsUsed} of ${c.outputs} used · ${c.measurement === 'one-line' ? 'balanced steps: an ordinary controller reading one CT' : 'steps serve single lines: the controller must measure every line (one CT per line)'}`,
     `CT ${ampsRating(c.ctPrimaryA)}/${ampsRating(c.ctSecondaryA)} A${c.ctChosen ? ' (chosen: next standard rating above 1.25 × the largest line current; give controller.ctPrimaryA if yours differs)' : ''}`,
     `C/k of the smallest step (${fixed(c.smallestStepKvar, 2)} kvar at nominal voltage) = ${fixed(c.responseThresholdA, 3)} A; set ${fixed(c.responseSettingA, 3)} A (${c.settingFraction} × C/k)`,
-    `target band ${band} · switching delay ${c.switchingDelayS} s · a step waits ${c.reconnectionDelayS} s before it is switched on again (discharge time ${c.dischargeTimeS} s)`,
+    `target band ${band} · switching delay ${c.switchingDelayS} s · a step waits ${c.reconnectionDelayS} s before it is switched on again (discharge time ${c.dischargeTimeS} s, ${c.dischargeRule})`,
   ];
 }
 

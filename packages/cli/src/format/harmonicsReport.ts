@@ -21,7 +21,7 @@ export type Label = (term: string) => string;
 export const labeller = (r: Pick<HarmonicsReport, 'phaseNames'>): Label => (term) => labelIn(r.phaseNames, term);
 
 /** What the current and voltage tables read: one board's lines, pairs and neutral, the orders solved and the naming. */
-export type BoardReadings = Pick<HarmonicsReport, 'lines' | 'lineToLine' | 'neutral' | 'orders' | 'phaseNames'>;
+export type BoardReadings = Pick<HarmonicsReport, 'lines' | 'lineToLine' | 'hasNeutral' | 'neutral' | 'orders' | 'phaseNames'>;
 
 export function currentTable(r: BoardReadings): string {
   const label = labeller(r);
@@ -43,6 +43,12 @@ export function currentTable(r: BoardReadings): string {
 
 export function voltageTable(r: BoardReadings): string {
   const label = labeller(r);
+  // Without a neutral only the line-to-line voltages exist at the board; the power factors are the board's.
+  if (!r.hasNeutral && r.lineToLine.length)
+    return renderTable(
+      [{ header: 'at board', align: 'left' }, { header: 'rms V' }, { header: 'THD %' }, { header: 'largest', align: 'left' }],
+      r.lineToLine.map((p) => [label(p.pair), fixed(p.voltage.rms, 1), thd(p.voltage), largestOrder(p.voltage)]),
+    );
   const rows = [
     ...r.lines.map((l) => [label(`${l.phase}-N`), fixed(l.voltage.rms, 1), thd(l.voltage), largestOrder(l.voltage), signedPfText(l.truePf), signedPfText(l.displacementPf)]),
     ...r.lineToLine.map((p) => [label(p.pair), fixed(p.voltage.rms, 1), thd(p.voltage), largestOrder(p.voltage), '', '']),

@@ -1,5 +1,5 @@
 /** ProfileResult → the text report of `trivar profile`. */
-import { billingPowerFactorText, labellerOf, type PhaseLabeller, type ProfileResult, type ProfileSummary, type ScenarioResult, type BoardScenarios } from '@trivar/core';
+import { billingPowerFactorText, contactorLifeWords, labellerOf, type PhaseLabeller, type ProfileBankResult, type ProfileResult, type ProfileSummary, type ScenarioResult, type BoardScenarios } from '@trivar/core';
 import { fixed, renderTable, section } from './textTable.js';
 import { wrapText } from './wrapText.js';
 
@@ -35,7 +35,7 @@ export function currentTable(s: ProfileSummary, label: PhaseLabeller): string {
     s.conductors.map((c) => [
       c.conductor === 'N' ? 'neutral' : `line ${label(c.conductor)}`,
       fixed(c.maxA, 1),
-      c.maxAt,
+      c.maxAt ?? '-',
       fixed(c.p99A, 1),
       fixed(c.p95A, 1),
       c.ratingA === null ? '-' : fixed(c.ratingA, 0),
@@ -58,8 +58,13 @@ export function thresholdLines(s: ProfileSummary, r: Pick<ProfileResult, 'limits
   const l = r.limits;
   const from = l.voltageLimitsFrom === 'profile.limits' ? 'profile.limits' : `the board's limits, ${l.voltageLimitsFrom}`;
   const out = [`below ${limitPercent(l.voltageLowPercent)} % voltage: ${hours(s.hoursVoltageLow)} h · above ${limitPercent(l.voltageHighPercent)} %: ${hours(s.hoursVoltageHigh)} h (${from})`];
-  if (s.unbalance)
-    out.push(`voltage unbalance |V2|/|V1|: peak ${fixed(s.unbalance.maxPercent, 2)} % at ${s.unbalance.maxAt}, P95 ${fixed(s.unbalance.p95Percent, 2)} %, above ${fixed(l.unbalancePercent, 1)} %: ${hours(s.unbalance.hoursAbove)} h`);
+  if (s.unbalance) {
+    // The board region's index and limit (|V2|/|V1| and 2 % IEC, the line-to-line deviation and 3 % ANSI C84.1).
+    const u = l.unbalance;
+    const threshold = l.unbalanceFrom === 'profile.limits' ? 'profile.limits' : u.source;
+    out.push(`${u.name}: peak ${fixed(s.unbalance.maxPercent, 2)} % at ${s.unbalance.maxAt}, P95 ${fixed(s.unbalance.p95Percent, 2)} %, above ${fixed(l.unbalancePercent, 1)} % (${threshold}): ${hours(s.unbalance.hoursAbove)} h`);
+    if (u.definition) out.push(`  (${u.name}: ${u.definition})`);
+  }
   out.push(`import at a leading power factor: ${hours(s.leadingHours)} h`);
   const lines = out.map((x) => `  ${x}`);
   if (s.hoursCollapsed > 0)
@@ -137,15 +142,16 @@ export function bankLines(r: { readonly bank: ProfileResult['bank']; readonly be
           ].join('; ')}`,
         ]
       : []),
-    `  controller: ${band}, switching threshold ${fixed(set.responseShare, 2)} × smallest step, delay ${set.delaySeconds} s, reconnect after ${set.reconnectSeconds} s`,
+    wrapText(`controller: ${band}, switching threshold ${fixed(set.responseShare, 2)} × smallest step, delay ${set.delaySeconds} s, reconnect after ${set.reconnectSeconds} s${reconnectBasis(set)}`, '  ', '    '),
     wrapText(b.withinInterval.words, '  ', '    '),
+    ...b.warnings.map((w) => wrapText(`warning: ${w}`, '  ', '    ')),
     '',
     renderTable(
       [{ header: 'step' }, { header: 'where', align: 'left' }, { header: 'kvar' }, { header: 'closings' }, { header: 'per year' }],
       b.steps.map((s) => [String(s.step), b.placeWords[s.channel] ?? s.channel, fixed(s.kvar, 1), thousands(s.closings), thousands(s.closingsPerYear)]),
     ),
     `  typical limit ${thousands(b.operationsPerYearLimit)} operations a year per step (IEC 60831-1 practice); a capacitor contactor lasts about ${thousands(b.contactorLifeOperations)} operations${
-      b.yearsToContactorLife === null ? '' : ` — the busiest step reaches that in ${fixed(b.yearsToContactorLife, 1)} years`
+      b.yearsToContactorLife === null ? '' : ` — the busiest step ${contactorLifeWords(b.yearsToContactorLife)}`
     }`,
     `  billing power factor ${billingPowerFactorText(r.before.energy.billingPf)} → ${billingPowerFactorText(b.after.energy.billingPf)}; leading import ${hours(r.before.leadingHours)} h → ${hours(b.after.leadingHours)} h`,
     ...(b.belowTarget && b.belowTarget.hours > 0
@@ -158,12 +164,19 @@ export function bankLines(r: { readonly bank: ProfileResult['bank']; readonly be
   return lines.join('\n');
 }
 
+/** Why the step waits that long: the practice's discharge time, or the file's setting beside it. */
+function reconnectBasis(set: ProfileBankResult['settings']): string {
+  if (set.reconnectFrom === 'practice') return ` (the discharge time, ${set.dischargeRule})`;
+  if (set.reconnectFrom === 'file') return ` (profile.bank.reconnectSeconds; discharge time ${set.dischargeSeconds} s, ${set.dischargeRule})`;
+  return ` (discharge time ${set.dischargeSeconds} s, ${set.dischargeRule})`;
+}
+
 export function worstTable(s: ProfileSummary): string {
   const worst = s.worstByNeutral.length ? s.worstByNeutral : s.worstByLine;
   const rows = worst.map((w) => [w.at, fixed(w.maxLineA, 1), fixed(w.neutralA, 1), w.unbalancePercent === null ? '-' : fixed(w.unbalancePercent, 2)]);
   const table = renderTable([{ header: 'interval', align: 'left' }, { header: 'highest line A' }, { header: 'neutral A' }, { header: 'unbalance %' }], rows);
   // Sequence components need three phases: on a split-phase or single-phase board there is no |V2|/|V1| (solve leaves it blank too).
-  return worst.some((w) => w.unbalancePercent === null) ? `${table}\n  (unbalance %: |V2|/|V1|, defined for three phases only; - on this board)` : table;
+  return worst.some((w) => w.unbalancePercent === null) ? `${table}\n  (unbalance %: defined for three phases only; - on this board)` : table;
 }
 
 /** @param label the board file's phase labels (`labellerOf(conventionsOf(board).phaseNames)`) */

@@ -33,7 +33,17 @@ function scoreWords(r: RebalanceReport): string {
 }
 
 /** Digits that keep a score readable whatever its size (a near-zero neutral still shows). */
-const score = (x: number) => (Math.abs(x) >= 100 ? fixed(x, 1) : Math.abs(x) >= 1 ? fixed(x, 2) : fixed(x, 3));
+const score = (x: number) => fixed(x, scoreDigits([x]));
+
+/**
+ * Scores read side by side take one precision, the one their smallest non-zero member needs
+ * ("149.80 → 91.28", not "149.8 → 91.28"; "149.800 → 0.004").
+ */
+function scoreDigits(xs: readonly number[]): number {
+  const sizes = xs.map(Math.abs).filter((x) => x > 0);
+  const smallest = sizes.length ? Math.min(...sizes) : 0;
+  return smallest >= 100 ? 1 : smallest >= 1 ? 2 : 3;
+}
 
 function verdict(r: RebalanceReport): string {
   const proof = r.proven
@@ -140,10 +150,11 @@ function conditionTable(c: ConditionComparison, lines: readonly string[]): strin
 }
 
 function moveTable(r: RebalanceReport): string {
+  const digits = scoreDigits((r.moveTable ?? []).flatMap((t) => [t.score, ...(t.lowerBound === null ? [] : [t.lowerBound])]));
   const rows = (r.moveTable ?? []).map((t) => [
     String(t.moves),
-    score(t.score),
-    t.lowerBound === null ? '-' : score(t.lowerBound),
+    fixed(t.score, digits),
+    t.lowerBound === null ? '-' : fixed(t.lowerBound, digits),
     t.withinCapacity ? (t.proven ? 'proven' : 'best found') : t.proven ? 'over capacity (no way within)' : 'over capacity',
     String(t.movesUsed),
   ]);
@@ -158,12 +169,15 @@ export function renderRebalanceReport(r: RebalanceReport): string {
   const installation = isInstallation(r);
   // One line: no score, no work order, only why.
   if (r.oneLine) return `${[r.board.name, ...r.notes.map((n) => wrapText(n, '', ''))].join('\n')}\n`;
+  // The four scores and the bound in one precision.
+  const digits = scoreDigits([r.score.before, r.score.after, r.solvedScore.before, r.solvedScore.after, ...(r.score.lowerBound === null ? [] : [r.score.lowerBound])]);
+  const s = (x: number) => fixed(x, digits);
   const parts: string[] = [
     r.board.name,
     wrapText(`Rebalancing: ${r.search.movable} of ${r.search.circuits} circuits can move${r.search.pinned ? `, ${r.search.pinned} pinned` : ''}${installation ? ` (boards: ${r.boards.movable.join(', ')})` : ''}`, '', '  '),
     wrapText(`Score: ${scoreWords(r)}`, '', '  '),
-    `  fast model:       now ${score(r.score.before)}  →  after ${score(r.score.after)}   lower bound ${r.score.lowerBound === null ? '-' : score(r.score.lowerBound)}`,
-    `  network re-solve: now ${score(r.solvedScore.before)}  →  after ${score(r.solvedScore.after)}`,
+    `  fast model:       now ${s(r.score.before)}  →  after ${s(r.score.after)}   lower bound ${r.score.lowerBound === null ? '-' : s(r.score.lowerBound)}`,
+    `  network re-solve: now ${s(r.solvedScore.before)}  →  after ${s(r.solvedScore.after)}`,
     wrapText(verdict(r), '  ', '    '),
   ];
   parts.push(section(`Work order (${r.moves.length} move${r.moves.length === 1 ? '' : 's'})`) + workOrder(r));

@@ -7,13 +7,12 @@ import { regionWords } from '../board/conventions/regionWords.js';
 import { boardVoltagePoints } from './voltageCheck.js';
 import { bandWords, judgeVoltage, presetLimits, type VoltageLimits } from '../board/conventions/voltageLimits.js';
 import type { Region } from '../board/conventions/region.js';
+import { unbalanceFigure, VOLTAGE_UNBALANCE_LIMITS } from '../board/conventions/unbalanceLimits.js';
 import { circuitNumberMismatches, sharedCircuitNumbers } from './panelNumbering.js';
 import { unitWords } from './sourceUnitsWords.js';
 import { lengthFigure, type FeederRouteLengths } from '../board/feederModel.js';
 
 export const WARNING_THRESHOLDS = {
-  /** Voltage unbalance factor above which supply-quality standards start to object (EN 50160, IEC 61000-2-2: 2 %). */
-  voltageUnbalancePercent: 2,
   /** Supply band of the open-neutral study's flags: ±10 % of nominal (EN 50160 LV band). Board voltages follow the board's `conventions.voltageLimits`. */
   voltageBandPercent: 10,
   /**
@@ -61,7 +60,7 @@ export function boardWarnings(input: {
   /** Board voltages judged against the limits: line-to-line on a board without a neutral. */
   readonly lineToLine?: readonly LineToLineReading[];
   readonly hasNeutral?: boolean;
-  /** The board's region: North America judges continuous loads at 80 % of their breaker; default IEC (100 %). */
+  /** The board's region: North America judges continuous loads at 80 % of their breaker (IEC: 100 %) and voltage unbalance by ANSI C84.1's index; default IEC. */
   readonly region?: Region;
   /** Resistance of the feeder into the board, ohm: each line conductor (in the order of `phases`) and the neutral. */
   readonly feederResistance?: { readonly lines: readonly number[]; readonly neutral: number } | null;
@@ -141,12 +140,15 @@ export function boardWarnings(input: {
         threshold: rating,
       });
   });
-  if (unbalance && unbalance.voltageFactorPercent > WARNING_THRESHOLDS.voltageUnbalancePercent)
+  // The region's own index and limit: |V2|/|V1| against 2 % (IEC), the line-to-line deviation against 3 % (ANSI C84.1).
+  const unbalanceLimit = VOLTAGE_UNBALANCE_LIMITS[input.region ?? 'iec'];
+  const unbalanceValue = unbalance ? unbalanceFigure(unbalanceLimit, unbalance) : null;
+  if (unbalanceValue !== null && unbalanceValue > unbalanceLimit.percent)
     out.push({
       code: 'voltage-unbalance',
-      message: `voltage unbalance factor ${fmt(unbalance.voltageFactorPercent, 2)} % is above ${WARNING_THRESHOLDS.voltageUnbalancePercent} % (EN 50160 / IEC 61000-2-2 level); three-phase motors need derating`,
-      value: unbalance.voltageFactorPercent,
-      threshold: WARNING_THRESHOLDS.voltageUnbalancePercent,
+      message: `${unbalanceLimit.name} ${fmt(unbalanceValue, 2)} % is above ${unbalanceLimit.percent} % (${unbalanceLimit.source}${unbalanceLimit.definition ? `; ${unbalanceLimit.definition}` : ''}); three-phase motors need derating`,
+      value: unbalanceValue,
+      threshold: unbalanceLimit.percent,
     });
   const band = bandWords(limits);
   const limitOf = (side: 'under' | 'over') => (side === 'under' ? 100 - limits.underPercent : 100 + limits.overPercent);

@@ -8,6 +8,7 @@
  * with Q_step at the nominal voltage and k_CT = CT primary / secondary. The
  * setting is a share of it (0.6–0.7, from memory) so the controller does not hunt.
  */
+import { CAPACITOR_DISCHARGE } from './capacitorDischarge.js';
 import { CORRECTION_DEFAULTS } from './correctionDefaults.js';
 import type { BankStep, ControllerSettings } from './correctionResult.js';
 import type { ControllerSpec, Practice } from './correctionSpec.js';
@@ -89,6 +90,7 @@ export function controllerSettings(input: ControllerInputs): ControllerSettings 
     targetBand: input.band,
     switchingDelayS: input.spec.switchingDelayS ?? CORRECTION_DEFAULTS.switchingDelayS,
     dischargeTimeS: discharge,
+    dischargeRule: CAPACITOR_DISCHARGE[input.practice].rule,
     reconnectionDelayS: Math.max(discharge, input.spec.switchingDelayS ?? CORRECTION_DEFAULTS.switchingDelayS),
   };
 }

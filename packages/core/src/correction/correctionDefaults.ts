@@ -2,6 +2,8 @@
  * Every default of the correction study in one place, each with its reason.
  * The public functions resolve their options against these.
  */
+import { CAPACITOR_DISCHARGE } from './capacitorDischarge.js';
+
 export const CORRECTION_DEFAULTS = {
   /** A common tariff threshold (see the PFC notes: 0.90–0.95 is usual). */
   pf: 0.95,
@@ -78,11 +80,8 @@ export const CORRECTION_DEFAULTS = {
    * 110 % of its rating (IEEE 18 and IEC 60831-1 continuous limit, methods notes §4).
    */
   continuousVoltageLimit: 1.1,
-  /**
-   * Discharge time before a step may be switched on again, s, by practice:
-   * IEC 60831-1 ≤ 75 V within 3 min; NEC 460.6 ≤ 50 V within 1 min (methods notes §9).
-   */
-  dischargeTimeS: { iec: 180, 'north-american': 60 },
+  /** Discharge time before a step may be switched on again, s, by practice (capacitorDischarge.ts: the rule each follows). */
+  dischargeTimeS: { iec: CAPACITOR_DISCHARGE.iec.seconds, 'north-american': CAPACITOR_DISCHARGE['north-american'].seconds },
   /** Steady rise ΔV/V ≈ Qc/S_sc flagged above 3 % (common practice, no source). */
   voltageRiseLimitPercent: 3,
   compensatorWeights: { negativeSequence: 1, zeroSequence: 1, reactive: 1 },

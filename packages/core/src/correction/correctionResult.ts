@@ -294,6 +294,8 @@ export interface ControllerSettings {
   readonly switchingDelayS: number;
   /** Discharge time of the practice, s. */
   readonly dischargeTimeS: number;
+  /** The rule that time follows ("IEC 60831-1: 75 V or less within 3 min"). */
+  readonly dischargeRule: string;
   /** A step is not switched on again before this, s (at least the discharge time). */
   readonly reconnectionDelayS: number;
 }

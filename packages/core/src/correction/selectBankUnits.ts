@@ -31,6 +31,7 @@ import { limitWords, selectionWording, warningText } from './correctionWording.j
 import { parseOptions } from '../_internal/zodIssues.js';
 import { labellerOf, PHASE_NAMINGS, type PhaseNaming } from '../board/conventions/phaseNames.js';
 import { firstFit, searchSet, shortOfTarget, type Need, type SetBuild, type UnitChoice } from './_internal/bankSearch.js';
+import { defaultPractice } from './capacitorDischarge.js';
 import { controllerSettings, resolveCurrentTransformer, responseThresholdA } from './controllerSettings.js';
 
 export interface SelectBankUnitsOptions {
@@ -96,8 +97,7 @@ const selectOptionsSchema = z.strictObject({
   besideReactors: z.enum(['down', 'up']).optional(),
 });
 
-/** Practice a board follows when none is given: 60 Hz boards are taken as North-American, 50 Hz as IEC (a rule of thumb; set `practice` where it is wrong). */
-export const defaultPractice = (frequencyHz: number): Practice => (frequencyHz === 60 ? 'north-american' : 'iec');
+export { defaultPractice };
 
 interface Usable {
   readonly unit: CatalogueUnit;

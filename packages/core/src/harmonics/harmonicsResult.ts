@@ -44,10 +44,23 @@ export interface NeutralCheck {
   readonly triplenSharePercent: number | null;
   /** Neutral rms / largest line rms. */
   readonly ratioToPhase: number | null;
+  /**
+   * What makes the neutral carry as much as the largest line, where it does: the phase loading (its
+   * fundamental alone reaches the largest line's, the loads sitting on one line), triplen orders adding
+   * from several lines (they are at least 10 % of its rms² and more than any one line carries), both, or
+   * neither alone (other harmonic orders). With the figures the words quote, A. Null where the neutral is
+   * below the largest line.
+   */
+  readonly aboveLine: {
+    readonly cause: 'phase-loading' | 'triplen' | 'both' | 'harmonics';
+    readonly neutralFundamentalA: number;
+    readonly lineFundamentalA: number;
+    readonly neutralTriplenA: number;
+    readonly lineTriplenA: number;
+  } | null;
   readonly ratingA: number | null;
   readonly loadingPercent: number | null;
   readonly overloaded: boolean;
-  /** The usual sizing practice for neutrals feeding non-linear loads, in words. */
   /** The usual sizing practice for this neutral; null on a three-phase board whose neutral carries little triplen current. */
   readonly practice: string | null;
 }
@@ -283,6 +296,11 @@ export interface HarmonicsReport {
   readonly state: string;
   readonly lines: readonly HarmonicLineReading[];
   readonly lineToLine: readonly { readonly pair: string; readonly voltage: DistortionReading }[];
+  /**
+   * False on a board without a neutral (3-wire): its line voltages (`lines[].voltage`) are to the mean of
+   * the three, a point no conductor reaches; reports and the IEEE 519 check read the line-to-line voltages.
+   */
+  readonly hasNeutral: boolean;
   readonly neutral: NeutralCheck | null;
   /** Board figures, arithmetic over the lines: ΣP / Σ(V·I). */
   readonly powerFactor: { readonly true: number | null; readonly displacement: number | null };
@@ -308,6 +326,8 @@ export interface BoardHarmonics {
   /** Per phase: the current in the board's incoming feeder (the service feeder at the main board) and the voltage at its busbar. */
   readonly lines: readonly HarmonicLineReading[];
   readonly lineToLine: readonly { readonly pair: string; readonly voltage: DistortionReading }[];
+  /** False on a board without a neutral (3-wire): as HarmonicsReport.hasNeutral. */
+  readonly hasNeutral: boolean;
   /** The incoming feeder's neutral; its rating is the feeder's neutral rating. */
   readonly neutral: NeutralCheck | null;
   /** rms of the zero-sequence orders (3, 9, 15…) in the feeder neutral, A; null without a neutral. */

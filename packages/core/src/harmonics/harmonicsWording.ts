@@ -3,7 +3,7 @@
  * assumptions and cautions, in one place.
  */
 import { distinctDigits } from '../correction/correctionWording.js';
-import type { BusVoltageDistortion, JointScan } from './harmonicsResult.js';
+import type { BusVoltageDistortion, JointScan, NeutralCheck } from './harmonicsResult.js';
 
 const pct = (x: number) => `${x.toFixed(1)} %`;
 /** A figure above its limit, with the decimals it needs to read above it (5.04 %, never "5.0 %, above 5 %"). */
@@ -37,10 +37,18 @@ export const harmonicsWarningText = {
   neutralOverload: (rms: number, rating: number) =>
     `the neutral carries ${rms.toFixed(1)} A rms including harmonics, above its ${rating.toFixed(0)} A rating: it overheats without tripping anything (no overcurrent device protects a neutral)`,
   /** `splitPhase`: the two lines are 180° apart, so triplens cancel there and something else makes the neutral large. */
-  neutralAbovePhase: (ratio: number, splitPhase = false) =>
-    splitPhase
-      ? `the neutral current is ${ratio.toFixed(2)} × the largest line current: the two lines' currents add in the neutral instead of cancelling (one line exporting while the other imports, or even harmonics)`
-      : `the neutral current is ${ratio.toFixed(2)} × the largest line current: triplen harmonics add in the neutral instead of cancelling`,
+  neutralAbovePhase: (neutral: Pick<NeutralCheck, 'ratioToPhase' | 'aboveLine' | 'current'>, splitPhase = false) => {
+    const head = `the neutral current is ${neutral.ratioToPhase!.toFixed(2)} × the largest line current`;
+    if (splitPhase) return `${head}: the two lines' currents add in the neutral instead of cancelling (one line exporting while the other imports, or even harmonics)`;
+    const a = neutral.aboveLine!;
+    const A = (x: number) => `${x.toFixed(1)} A`;
+    const loading = `the phase loading: its fundamental alone is ${A(a.neutralFundamentalA)} against ${A(a.lineFundamentalA)} in the most loaded line (the loads sit mostly on one line, and the neutral brings their current back)`;
+    const triplen = `triplen harmonics (orders 3, 9, 15…) add in it from several lines instead of cancelling: ${A(a.neutralTriplenA)} of its ${A(neutral.current.rms)} rms, against at most ${A(a.lineTriplenA)} in one line`;
+    if (a.cause === 'phase-loading') return `${head}: the cause is ${loading}; the triplen orders in it are ${A(a.neutralTriplenA)}`;
+    if (a.cause === 'both') return `${head}: the cause is ${loading}, and ${triplen}`;
+    if (a.cause === 'triplen') return `${head}: ${triplen}`;
+    return `${head}: the lines' harmonic currents add in it (fundamental ${A(a.neutralFundamentalA)} against ${A(a.lineFundamentalA)} in the most loaded line; triplen orders ${A(a.neutralTriplenA)})`;
+  },
   resonance: (states: readonly string[], peak: number, order: number) =>
     `resonance with the supply at h ≈ ${peak.toFixed(2)}, within ±10 % of order ${order}, with the bank at ${states.length > 3 ? `${states.slice(0, 3).join(', ')} and ${states.length - 3} more state(s)` : states.join(', ')}: voltages and capacitor currents are amplified there`,
   /** A resonance near `order` only with other banks switched: `state` names this bank's state and the others'. */
@@ -95,10 +103,10 @@ export const harmonicsAssumptionText = {
     } not covered (${joint.networkStates} networks)`,
 };
 
-/** Shown with every harmonics study, in the region's words ("earth" or "ground"). */
-export const harmonicsCautions = (ground: 'earth' | 'ground'): readonly string[] => [
+/** Shown with every harmonics study, in the region's words ("earth" or "ground"); the neutral's only where a board has one. */
+export const harmonicsCautions = (ground: 'earth' | 'ground', anyNeutral = true): readonly string[] => [
   'Harmonic resonance can overload capacitors until they fail, rupture or catch fire; check every step combination before energising a bank.',
-  'Neutrals of boards with non-linear loads can overheat without any protective device tripping; measure neutral current with a true-rms meter.',
+  ...(anyNeutral ? ['Neutrals of boards with non-linear loads can overheat without any protective device tripping; measure neutral current with a true-rms meter.'] : []),
   'Built-in spectra are typical values, not measurements: measure the real loads (true-rms, per order) before buying or rebuilding a bank.',
   `Capacitors stay charged after disconnection: wait the rated discharge time, then short every terminal together and to ${ground} before touching.`,
   'These results support, and do not replace, the judgement of a licensed professional and the local electrical codes.',

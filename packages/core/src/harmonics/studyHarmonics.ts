@@ -24,9 +24,9 @@ import { checkVoltageDistortion } from './voltageDistortion.js';
 import { HARMONICS_DEFAULTS } from './harmonicsDefaults.js';
 import type { HarmonicsBoardSpec } from './harmonicsSpec.js';
 import { harmonicsCautions, harmonicsWarningText, harmonicsWording, neutralPractice } from './harmonicsWording.js';
-import type { CapacitorDuty, DutyCase, DutyCondition, HarmonicLineReading, HarmonicsReport, HarmonicsWarning, NeutralCheck, ResonanceScan, TddCheck, VoltageDistortionCheck } from './harmonicsResult.js';
+import type { CapacitorDuty, DistortionReading, DutyCase, DutyCondition, HarmonicLineReading, HarmonicsReport, HarmonicsWarning, NeutralCheck, ResonanceScan, TddCheck, VoltageDistortionCheck } from './harmonicsResult.js';
 import { conventionsOf } from '../board/conventions/boardConventions.js';
-import { regionWords } from '../board/conventions/regionWords.js';
+import { regionWords, type RegionWords } from '../board/conventions/regionWords.js';
 import { labelIn } from '../board/conventions/phaseNames.js';
 import { ROUND_OFF_MARGIN } from '../analysis/boardWarnings.js';
 
@@ -67,10 +67,12 @@ export function neutralCheck(board: Board, orders: readonly OrderSolution[], lin
   // The three-phase sizing note speaks of triplen currents: given where they are a real share of the neutral's.
   const threePhase = board.phases.length === 3;
   const practice = threePhase && (triplenSharePercent ?? 0) < NEUTRAL_NOTE_TRIPLEN_PERCENT ? null : neutralPractice(board.system);
+  const ratioToPhase = largest > 0 ? current.rms / largest : null;
   return {
     current,
     triplenSharePercent,
-    ratioToPhase: largest > 0 ? current.rms / largest : null,
+    ratioToPhase,
+    aboveLine: ratioToPhase !== null && ratioToPhase > 1 + ROUND_OFF_MARGIN ? aboveLineCause(current.fundamental, Math.sqrt(triplen), triplenSharePercent ?? 0, lines) : null,
     ratingA: rating,
     loadingPercent: rating ? (100 * current.rms) / rating : null,
     overloaded: rating !== null && current.rms > rating,
@@ -80,6 +82,23 @@ export function neutralCheck(board: Board, orders: readonly OrderSolution[], lin
 
 /** Share of the neutral's rms² in triplen orders, %, below which the triplen sizing note is left out (common practice, no source). */
 const NEUTRAL_NOTE_TRIPLEN_PERCENT = 10;
+
+const triplenRms = (d: DistortionReading) => Math.sqrt(d.orders.filter((o) => o.order % 3 === 0).reduce((s, o) => s + o.magnitude ** 2, 0));
+
+/**
+ * Why the neutral carries as much as the largest line. Its fundamental reaching the largest line's means
+ * the loads sit on one line and the neutral brings that current back: the phase loading. Triplen orders
+ * add from several lines only where the neutral carries more of them than any one line, and they matter
+ * only as a real share of its rms (NEUTRAL_NOTE_TRIPLEN_PERCENT).
+ */
+function aboveLineCause(neutralFundamentalA: number, neutralTriplenA: number, triplenSharePercent: number, lines: readonly HarmonicLineReading[]): NonNullable<NeutralCheck['aboveLine']> {
+  const lineFundamentalA = Math.max(...lines.map((l) => l.current.fundamental));
+  const lineTriplenA = Math.max(...lines.map((l) => triplenRms(l.current)));
+  const phaseLoading = neutralFundamentalA >= lineFundamentalA * (1 - ROUND_OFF_MARGIN);
+  const triplenAdd = triplenSharePercent >= NEUTRAL_NOTE_TRIPLEN_PERCENT && neutralTriplenA > lineTriplenA * (1 + ROUND_OFF_MARGIN);
+  const cause = phaseLoading ? (triplenAdd ? 'both' : 'phase-loading') : triplenAdd ? 'triplen' : 'harmonics';
+  return { cause, neutralFundamentalA, lineFundamentalA, neutralTriplenA, lineTriplenA };
+}
 
 export function tddCheck(board: Board, model: HarmonicModel, lines: readonly HarmonicLineReading[]): TddCheck | null {
   if (!model.pcc) return null;
@@ -199,13 +218,26 @@ export function capacitorDuty(board: Board, model: HarmonicModel, solveOrders: D
   };
 }
 
+/**
+ * How the source is modelled where the file gives more than a symmetric impedance: an open delta has no
+ * star point (two windings meeting at one line, no neutral, so no zero-sequence path); a star source's
+ * star point is earthed through the zero-sequence impedance the file gives.
+ */
+function sourceAssumptions(board: Board, words: RegionWords): string[] {
+  const alike = 'in the solve at each order and in the frequency scan alike';
+  if (board.openDeltaCorner) {
+    const corner = labelIn(conventionsOf(board).phaseNames, board.openDeltaCorner);
+    return [`the source an open delta as the file gives it: two windings meeting at line ${corner}, each with its own impedance, and no star point or neutral, so no zero-sequence current flows; ${alike}`];
+  }
+  if (board.sourceStarImpedance) return [`${words.sourceNeutralPoint} ${words.groundWord}ed through the zero-sequence impedance the file gives, ${alike}`];
+  return [];
+}
+
 export function assumptions(board: Board, model: HarmonicModel, otherBanks = false): string[] {
   const forms = new Set(model.loads.flatMap((l) => (l.kind === 'linear' ? [l.form] : [])));
   const words = regionWords(conventionsOf(board).region, board.system);
   return [
-    ...(board.sourceStarImpedance || board.openDeltaCorner
-      ? [`${words.sourceNeutralPoint} ${words.groundWord}ed as the file gives it (zero-sequence impedance or open delta), in the solve at each order and in the frequency scan alike`]
-      : []),
+    ...sourceAssumptions(board, words),
     forms.size
       ? `linear loads as ${[...forms].join(' and ')} R/X from their solved fundamental values (rated loads default to parallel R ‖ jX, loads in ohms and capacitors keep series form)`
       : 'no linear loads: every load is a harmonic source (its fundamental draws as solved)',
@@ -252,7 +284,7 @@ export function harmonicsWarnings({ scan, neutral, voltageDistortion, duty, tdd,
   if (neutral?.overloaded) warn('neutral-overload', harmonicsWarningText.neutralOverload(neutral.current.rms, neutral.ratingA!), neutral.current.rms, neutral.ratingA);
   // Above 1 by more than round-off: on a single-phase board the neutral is the line's return, 1 ± 1e-16.
   if (neutral?.ratioToPhase !== null && neutral?.ratioToPhase !== undefined && neutral.ratioToPhase > 1 + ROUND_OFF_MARGIN)
-    warn('neutral-above-phase', harmonicsWarningText.neutralAbovePhase(neutral.ratioToPhase, splitPhase), neutral.ratioToPhase, 1);
+    warn('neutral-above-phase', harmonicsWarningText.neutralAbovePhase(neutral, splitPhase), neutral.ratioToPhase, 1);
   if (voltageDistortion) {
     const { individualLimitPercent: individual, thdLimitPercent: thdLimit } = voltageDistortion;
     for (const bus of voltageDistortion.buses)
@@ -306,7 +338,7 @@ export function analyseHarmonics(board: Board, model: HarmonicModel, options: Ha
   const scan = scanResonance(fundamental, model, { ...checkedOrders(ordersPresent(model)), ...(options.scanOrders ? { grid: options.scanOrders } : {}) });
   const duty = capacitorDuty(board, model, boardDutySolver(networks, options.solve));
   const phaseNames = conventionsOf(board).phaseNames;
-  const voltageDistortion = checkVoltageDistortion(lines, lineToLine);
+  const voltageDistortion = checkVoltageDistortion(lines, lineToLine, board.hasNeutral);
   // Warnings name phases, pairs and branches the way the board file names them (L1-N or A-N).
   const warnings = harmonicsWarnings({ scan, neutral, voltageDistortion, duty, tdd, splitPhase: board.system === 'split-phase' }, (term) => labelIn(phaseNames, term));
   return {
@@ -317,6 +349,7 @@ export function analyseHarmonics(board: Board, model: HarmonicModel, options: Ha
     state: model.bank ? `every bank step on (${combinationLabel(model.bank, model.bank.stepLoads.map(() => true))})` : 'as given',
     lines,
     lineToLine,
+    hasNeutral: board.hasNeutral,
     neutral,
     powerFactor: boardPowerFactor(orders, lines),
     tdd,
@@ -326,7 +359,7 @@ export function analyseHarmonics(board: Board, model: HarmonicModel, options: Ha
     spectra: spectraOf(board, model),
     assumptions: assumptions(board, model),
     warnings,
-    cautions: harmonicsCautions(regionWords(conventionsOf(board).region, board.system).groundWord),
+    cautions: harmonicsCautions(regionWords(conventionsOf(board).region, board.system).groundWord, board.hasNeutral),
   };
 }
 

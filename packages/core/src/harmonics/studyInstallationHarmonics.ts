@@ -252,7 +252,7 @@ export function analyseInstallationHarmonics({ installation, models, bankBoards 
     const lines = readLines(orders);
     const lineToLine = readLineToLine(orders);
     const neutral = neutralCheck(board, orders, lines);
-    const voltageDistortion = checkVoltageDistortion(lines, lineToLine);
+    const voltageDistortion = checkVoltageDistortion(lines, lineToLine, board.hasNeutral);
     warnings.push(...harmonicsWarnings({ scan: null, neutral, voltageDistortion, duty: null, tdd: null, splitPhase: board.system === 'split-phase' }, label).map((w) => ({ ...w, board: board.name })));
     return {
       board: board.name,
@@ -260,6 +260,7 @@ export function analyseInstallationHarmonics({ installation, models, bankBoards 
       depth: depthOf(installation, b),
       lines,
       lineToLine,
+      hasNeutral: board.hasNeutral,
       neutral,
       triplenNeutralA: neutral ? Math.sqrt(neutral.current.orders.filter((o) => o.order % 3 === 0).reduce((s, o) => s + o.magnitude ** 2, 0)) : null,
       powerFactor: boardPowerFactor(orders, lines),
@@ -297,6 +298,6 @@ export function analyseInstallationHarmonics({ installation, models, bankBoards 
     scans,
     assumptions: installationAssumptions(installation.main, models, bankBoards, scans, options.scanBoards?.[0]),
     warnings,
-    cautions: harmonicsCautions(regionWords(conventionsOf(main).region, main.system).groundWord),
+    cautions: harmonicsCautions(regionWords(conventionsOf(main).region, main.system).groundWord, boards.some((b) => b.hasNeutral)),
   };
 }

@@ -5,9 +5,10 @@
  */
 import type { Board } from '../board/boardModel.js';
 import type { StepChannel, SwitchedStep, SwitchingSettings } from './bankController.js';
+import { CAPACITOR_DISCHARGE, defaultPractice } from '../correction/capacitorDischarge.js';
 import { maximumOf } from './intervalStatistics.js';
 import { PROFILE_DEFAULTS } from './profileDefaults.js';
-import { stepPlaceWords, switchingWithinIntervalWords } from './profileWording.js';
+import { shortReconnectWords, stepPlaceWords, switchingWithinIntervalWords } from './profileWording.js';
 import type { ProfileSpec } from './profileSpec.js';
 import type { BankRun } from './simulateBank.js';
 import { sizeBankSteps } from './sizeBankSteps.js';
@@ -40,6 +41,7 @@ export function bankOverProfile(input: BankOverProfileInput, options: Pick<Profi
   const designed = options.designedBank;
   if (!options.bank && !designed) return null;
   const b = input.profile?.bank;
+  const discharge = designed?.discharge ?? CAPACITOR_DISCHARGE[defaultPractice(board.frequencyHz)];
   const settings: SwitchingSettings & { coverShare: number | null } = designed
     ? { ...designed.settings, coverShare: null }
     : {
@@ -47,7 +49,7 @@ export function bankOverProfile(input: BankOverProfileInput, options: Pick<Profi
         coverShare: b?.coverShare ?? PROFILE_DEFAULTS.coverShare,
         responseShare: b?.responseShare ?? PROFILE_DEFAULTS.responseShare,
         delaySeconds: b?.delaySeconds ?? PROFILE_DEFAULTS.delaySeconds,
-        reconnectSeconds: b?.reconnectSeconds ?? PROFILE_DEFAULTS.reconnectSeconds,
+        reconnectSeconds: b?.reconnectSeconds ?? discharge.seconds,
       };
   let steps: readonly SwitchedStep[];
   let needKvar: Record<string, number> | null = null;
@@ -93,7 +95,14 @@ export function bankOverProfile(input: BankOverProfileInput, options: Pick<Profi
       totalKvar: steps.reduce((s, x) => s + x.kvar, 0),
       fixedKvar: fixed.reduce((s, x) => s + x.kvar, 0),
       notSimulated: designed && (designed.notSimulated.length || designed.fixedNotSimulatedKvar) ? { outputs: designed.notSimulated, fixedKvar: designed.fixedNotSimulatedKvar } : null,
-      settings: { ...rest, upperPf: upperPf ?? null },
+      settings: {
+        ...rest,
+        upperPf: upperPf ?? null,
+        dischargeSeconds: discharge.seconds,
+        dischargeRule: discharge.rule,
+        reconnectFrom: designed ? 'correction-study' : b?.reconnectSeconds !== undefined ? 'file' : 'practice',
+      },
+      warnings: settings.reconnectSeconds < discharge.seconds ? [shortReconnectWords(settings.reconnectSeconds, discharge)] : [],
       withinInterval: {
         intervalSeconds: input.intervalMs / 1000,
         movesPerInterval: settings.delaySeconds > 0 ? Math.floor(input.intervalMs / 1000 / settings.delaySeconds) : null,

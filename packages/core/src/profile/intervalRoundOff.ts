@@ -38,6 +38,7 @@ export function clearRoundOff(boards: readonly IntervalFigures[], floorA = 0, no
     const noiseVA = Math.max(NOISE_FLOOR_RELATIVE * largestVA, noiseA * nominalV);
     for (const f of boards) {
       if (f.unbalancePercent[i]! < 100 * SEQUENCE_VOLTAGE_RESOLUTION) f.unbalancePercent[i] = 0;
+      if (f.lineDeviationPercent[i]! < 100 * SEQUENCE_VOLTAGE_RESOLUTION) f.lineDeviationPercent[i] = 0;
       if (f.neutralA[i]! < noiseA) f.neutralA[i] = 0;
       for (let k = 0; k < f.lineA.length; k++) {
         const idle = f.lineA[k]![i]! < noiseA;

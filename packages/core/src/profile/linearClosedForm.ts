@@ -10,6 +10,7 @@ import type { BatchNetwork, DriverColumns } from './batchNetwork.js';
 import { closedFormBlocker } from './closedFormKernel.js';
 import { modulus } from './batchKernel.js';
 import type { IntervalFigures } from './solveBatch.js';
+import { lineDeviationPercentOf } from '../analysis/unbalanceIndices.js';
 
 const H = Math.sqrt(3) / 2;
 
@@ -59,6 +60,7 @@ export function solveLinearClosedForm(net: BatchNetwork, columns: DriverColumns,
   const [q0, q1, q2] = out.phaseVar as [Float64Array, Float64Array, Float64Array];
   const neutral = out.neutralA;
   const vuf = out.unbalancePercent;
+  const deviation = out.lineDeviationPercent;
   const ar = columns.re;
   const ai = columns.im;
   for (let d = 0; d < 3 * D; d++) {
@@ -171,5 +173,6 @@ export function solveLinearClosedForm(net: BatchNetwork, columns: DriverColumns,
     const ni2 = sumI - ti;
     const m1 = pr * pr + pi * pi;
     vuf[i] = m1 === 0 ? 0 : 100 * Math.sqrt((nr2 * nr2 + ni2 * ni2) / m1);
+    deviation[i] = lineDeviationPercentOf(b0r, b0i, b1r, b1i, b2r, b2i);
   }
 }

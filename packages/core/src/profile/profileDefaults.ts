@@ -1,7 +1,10 @@
-/** Every default of the profile study, with its reason, in one place. */
+/**
+ * Every default of the profile study, with its reason, in one place. The time a step stays off before it
+ * is switched on again defaults to the discharge time of the board's capacitor practice, the correction
+ * study's one definition (correction/capacitorDischarge.ts); the voltage unbalance threshold, and the index
+ * it judges, is the board region's (board/conventions/unbalanceLimits.ts).
+ */
 export const PROFILE_DEFAULTS = {
-  /** IEC 61000-2-2 / EN 50160 compatibility level for |V2|/|V1| (from memory; METHODS §3). */
-  unbalancePercent: 2,
   /** Common demand-meter window (common practice, no source). */
   demandWindowMinutes: 15,
   /** A usual tariff target; the correction study uses the same default. */
@@ -14,10 +17,14 @@ export const PROFILE_DEFAULTS = {
   responseShare: 0.67,
   /** Switching delay of tens of seconds (METHODS §10, common practice). */
   delaySeconds: 30,
-  /** IEC 60831-1: discharge to ≤ 75 V within 3 min; units with fast-discharge resistors or reactors allow ~60 s (common practice, no source). */
-  reconnectSeconds: 60,
   /** IEC 60831-1 manufacturer note: ≤ 5000 switching operations per year (METHODS §4, confirmed secondary). */
   operationsPerYearLimit: 5000,
   /** A capacitor-duty contactor's electrical life, order of 100 000 operations (from memory). */
   contactorLifeOperations: 100_000,
+  /**
+   * The horizon a time to the contactor's life is given within, years: longer than a capacitor bank is
+   * expected to stay in service, so a figure beyond it is no forecast and is said to lie beyond it
+   * (common practice, no source).
+   */
+  contactorLifeHorizonYears: 50,
 } as const;

@@ -55,7 +55,7 @@ export const profileBankSchema = z
     steps: z.array(bankStepSchema).min(1).max(24).optional().describe('steps as built (skips sizing from the profile)'),
     responseShare: z.number().gt(0).max(1.5).optional().describe('switching threshold as a share of the smallest step (C/k setting); default 0.67'),
     delaySeconds: nonNegative.max(3600).optional().describe('time a need must persist before a step switches; default 30 s'),
-    reconnectSeconds: nonNegative.max(3600).optional().describe('minimum time a step stays off before reconnecting (discharge); default 60 s'),
+    reconnectSeconds: nonNegative.max(3600).optional().describe('minimum time a step stays off before reconnecting (discharge); default the discharge time of the board\'s practice: 180 s IEC (50 Hz), 60 s North-American (60 Hz)'),
     perPhase: z.boolean().optional().describe('size single-phase steps per phase instead of three-phase steps; default false'),
     measuredAt: z
       .string()
@@ -69,7 +69,9 @@ export const profileBankSchema = z
 
 export const profileLimitsSchema = z
   .strictObject({
-    unbalancePercent: positive.optional().describe('voltage unbalance threshold |V2|/|V1|, %; default 2'),
+    unbalancePercent: positive
+      .optional()
+      .describe("voltage unbalance threshold, %, on the board region's index: |V2|/|V1| for IEC boards (default 2), the largest deviation of a line-to-line voltage from their average for North-American boards (default 3, ANSI C84.1)"),
     neutralA: positive.optional().describe('neutral current threshold, A; default the neutral rating (none where the neutral has no rating)'),
     voltageLowPercent: positive.optional().describe("lowest acceptable phase voltage, % of nominal; default the board's voltage limits (conventions.voltageLimits, or the board's own in an installation)"),
     voltageHighPercent: positive.optional().describe("highest acceptable phase voltage, % of nominal; default the board's voltage limits (conventions.voltageLimits, or the board's own in an installation)"),

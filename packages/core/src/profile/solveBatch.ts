@@ -8,6 +8,7 @@ import { modulus, type BatchKernel, type IntervalState, type KernelOptions } fro
 import { closedFormBlocker, createClosedFormKernel } from './closedFormKernel.js';
 import { createCompiledKernel } from './compiledKernel.js';
 import { isLinearClosedForm, solveLinearClosedForm } from './linearClosedForm.js';
+import { lineDeviationPercentOf } from '../analysis/unbalanceIndices.js';
 
 /** Per-interval figures, each a column of `count` values. */
 export interface IntervalFigures {
@@ -25,6 +26,11 @@ export interface IntervalFigures {
   readonly phaseVar: readonly Float64Array[];
   /** Negative- to positive-sequence voltage ratio at the board bus, % (0 for fewer than three phases). */
   readonly unbalancePercent: Float64Array;
+  /**
+   * Largest deviation of a line-to-line voltage magnitude from the average of the three, % of that average
+   * (the ANSI C84.1 / NEMA MG 1 index; 0 for fewer than three phases).
+   */
+  readonly lineDeviationPercent: Float64Array;
 }
 
 /** The line pairs of a board of `phases` lines, in the order `lineToLineV` holds them. */
@@ -42,6 +48,7 @@ export function allocateFigures(count: number, phases: number): IntervalFigures 
     phaseW: cols(),
     phaseVar: cols(),
     unbalancePercent: new Float64Array(count),
+    lineDeviationPercent: new Float64Array(count),
   };
 }
 
@@ -86,6 +93,7 @@ export function recordInterval(state: IntervalState, sequence: 'ABC' | 'ACB', ou
     const di = s * (br - cr);
     const m1 = modulus(sumR + dr, sumI + di);
     out.unbalancePercent[i] = m1 === 0 ? 0 : (100 * modulus(sumR - dr, sumI - di)) / m1;
+    out.lineDeviationPercent[i] = lineDeviationPercentOf(ar, ai, br, bi, cr, ci);
   }
 }
 

@@ -3,6 +3,7 @@
  * summaries before any correction, and optionally an automatic bank simulated
  * over the same intervals with the summary after it.
  */
+import { VOLTAGE_UNBALANCE_LIMITS } from '../board/conventions/unbalanceLimits.js';
 import { InputError, inputIssue } from '../errors.js';
 import type { Board } from '../board/boardModel.js';
 import { conventionsOf } from '../board/conventions/boardConventions.js';
@@ -11,7 +12,6 @@ import type { DriverColumns, DriverSpec } from './batchNetwork.js';
 import { compileBatchNetwork } from './batchNetwork.js';
 import type { BankDesign, SwitchingFromBank } from './switchingFromBank.js';
 import type { SequenceReport } from './checkIntervalSequence.js';
-import { PROFILE_DEFAULTS } from './profileDefaults.js';
 import type { ProfileSpec } from './profileSpec.js';
 import { simulateBank } from './simulateBank.js';
 import { clearRoundOff, conductorFloorA } from './intervalRoundOff.js';
@@ -89,7 +89,14 @@ export interface ProfileBankResult {
     readonly responseShare: number;
     readonly delaySeconds: number;
     readonly reconnectSeconds: number;
+    /** The discharge time of the board's capacitor practice, s, and the rule it follows. */
+    readonly dischargeSeconds: number;
+    readonly dischargeRule: string;
+    /** Where the reconnection time came from: the file (profile.bank.reconnectSeconds), the practice's discharge time, or the correction study. */
+    readonly reconnectFrom: 'file' | 'practice' | 'correction-study';
   };
+  /** What the settings put at risk, in words (a reconnection time shorter than the discharge time). */
+  readonly warnings: readonly string[];
   /**
    * The switching inside an interval, where its length matters: the load taken as steady through each
    * interval, at most floor(interval ÷ delay) moves in it (null: no delay, the controller settles at once).
@@ -148,8 +155,11 @@ export function resolveLimits(board: Board, spec: ProfileSpec | undefined): Reso
   const l = spec?.limits;
   const own = conventionsOf(board).voltageLimits;
   const fromProfile = l?.voltageLowPercent !== undefined || l?.voltageHighPercent !== undefined;
+  const unbalance = VOLTAGE_UNBALANCE_LIMITS[conventionsOf(board).region];
   return {
-    unbalancePercent: l?.unbalancePercent ?? PROFILE_DEFAULTS.unbalancePercent,
+    unbalancePercent: l?.unbalancePercent ?? unbalance.percent,
+    unbalance,
+    unbalanceFrom: l?.unbalancePercent !== undefined ? 'profile.limits' : 'region',
     // An unrated neutral has no limit: a line's rating says nothing of the neutral's conductor.
     neutralA: l?.neutralA ?? board.neutralRatingA,
     voltageLowPercent: l?.voltageLowPercent ?? 100 - own.underPercent,

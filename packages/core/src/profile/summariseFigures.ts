@@ -2,6 +2,7 @@
  * Per-interval figures → the summary people read: peaks and percentiles with
  * when they happen, hours beyond thresholds, energy, calendar months.
  */
+import type { VoltageUnbalanceLimit } from '../board/conventions/unbalanceLimits.js';
 import { SUPPLY_LIMITS } from '../analysis/readSupplyState.js';
 import { asPrinted, type VoltageLimits } from '../board/conventions/voltageLimits.js';
 import { lineRatingOf, type Board } from '../board/boardModel.js';
@@ -15,7 +16,8 @@ export interface ConductorSummary {
   /** A, B, C or N. */
   readonly conductor: string;
   readonly maxA: number;
-  readonly maxAt: string;
+  /** When the peak was; null for a conductor that carries no current in any interval (it has no peak). */
+  readonly maxAt: string | null;
   readonly p95A: number;
   readonly p95At: string;
   readonly p99A: number;
@@ -38,12 +40,17 @@ export interface WorstInterval {
   readonly at: string;
   readonly neutralA: number;
   readonly maxLineA: number;
-  /** |V2|/|V1| at the board, %; null on a board of fewer than three phases, where sequence components do not exist. */
+  /** Voltage unbalance at the board on the region's index (ResolvedLimits.unbalance), %; null on a board of fewer than three phases. */
   readonly unbalancePercent: number | null;
 }
 
 export interface ResolvedLimits {
+  /** Voltage unbalance above this counts, on the index of `unbalance` (the board region's, unbalanceLimits.ts). */
   readonly unbalancePercent: number;
+  /** The index judged (|V2|/|V1|, or the line-to-line deviation from the average), its name, definition and the limit's source. */
+  readonly unbalance: VoltageUnbalanceLimit;
+  /** Where the threshold comes from: the region's default, or the file's `profile.limits.unbalancePercent`. */
+  readonly unbalanceFrom: 'region' | 'profile.limits';
   readonly neutralA: number | null;
   /** Voltages below this (% of their nominal, judged as printed to 0.1 %) count as low: line-to-neutral and line-to-line, as `voltages` lists them. */
   readonly voltageLowPercent: number;
@@ -114,7 +121,7 @@ export function summariseFigures(f: IntervalFigures, ctx: SummaryContext): Profi
     return {
       conductor: name,
       maxA: max.value,
-      maxAt: ctx.label(max.index),
+      maxAt: max.value > 0 ? ctx.label(max.index) : null,
       p95A: p95!.value,
       p95At: ctx.label(p95!.index),
       p99A: p99!.value,
@@ -173,16 +180,18 @@ export function summariseFigures(f: IntervalFigures, ctx: SummaryContext): Profi
   const kWhImport = sumOf((m) => m.kWhImport);
   const kvarhLagging = sumOf((m) => m.kvarhLagging);
   const sumCol = (x: Float64Array) => x.reduce((s, v) => s + v, 0);
+  // The region's index: |V2|/|V1| (IEC), or the line-to-line deviation from the average (ANSI C84.1).
+  const unbalanceColumn = limits.unbalance.index === 'negative-sequence' ? f.unbalancePercent : f.lineDeviationPercent;
   const worst = (i: number): WorstInterval => ({
     at: ctx.label(i),
     neutralA: f.neutralA[i]!,
     maxLineA: Math.max(...f.lineA.map((col) => col[i]!)),
-    unbalancePercent: board.phases.length === 3 ? f.unbalancePercent[i]! : null,
+    unbalancePercent: board.phases.length === 3 ? unbalanceColumn[i]! : null,
   });
   const maxLine = new Float64Array(n);
   for (let i = 0; i < n; i++) for (const col of f.lineA) if (col[i]! > maxLine[i]!) maxLine[i] = col[i]!;
   const threePhase = board.phases.length === 3;
-  const vuMax = maximumOf(f.unbalancePercent);
+  const vuMax = maximumOf(unbalanceColumn);
   return {
     hours: n * h,
     conductors,
@@ -194,8 +203,8 @@ export function summariseFigures(f: IntervalFigures, ctx: SummaryContext): Profi
       ? {
           maxPercent: vuMax.value,
           maxAt: ctx.label(vuMax.index),
-          p95Percent: percentilesOf(f.unbalancePercent, [0.95])[0]!.value,
-          hoursAbove: countWhere(n, (i) => f.unbalancePercent[i]! > limits.unbalancePercent) * h,
+          p95Percent: percentilesOf(unbalanceColumn, [0.95])[0]!.value,
+          hoursAbove: countWhere(n, (i) => unbalanceColumn[i]! > limits.unbalancePercent) * h,
         }
       : null,
     energy: {

@@ -12,12 +12,15 @@
  * back as not simulated. The controller keeps the study's PF band: the
  * upper limit (or unity where leading is not allowed) bounds what it switches in.
  */
+import type { CapacitorDischarge } from '../correction/capacitorDischarge.js';
 import type { BankStep, ControllerSettings } from '../correction/correctionResult.js';
 import { isLinePair, type StepChannel, type SwitchedStep, type SwitchingSettings } from './bankController.js';
 
 export interface SwitchingFromBank {
   readonly steps: readonly SwitchedStep[];
   readonly settings: SwitchingSettings;
+  /** The discharge time the study's reconnection delay allows for, and its rule. */
+  readonly discharge: CapacitorDischarge;
   /** Fixed part, kvar at nominal voltage (always on): the total, and its parts by channel for simulateBank. */
   readonly fixedKvar: number;
   readonly fixed: readonly SwitchedStep[];
@@ -67,6 +70,7 @@ export function switchingFromBank(steps: readonly BankStep[], controller: Contro
       // The band's upper edge; with no upper PF given, unity unless the study allowed leading.
       ...(controller.targetBand.maxPf !== null ? { upperPf: controller.targetBand.maxPf } : controller.targetBand.leadingAllowed ? {} : { upperPf: 1 }),
     },
+    discharge: { seconds: controller.dischargeTimeS, rule: controller.dischargeRule },
     fixedKvar,
     fixed,
     notSimulated,

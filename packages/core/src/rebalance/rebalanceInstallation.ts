@@ -39,7 +39,7 @@ import { searchMeetInMiddle } from './searchMeetInMiddle.js';
 import { termBoundFor } from './termBounds.js';
 import { installationInCondition, moveInstallationCircuits } from './applyMoves.js';
 import type { BoardVoltageComparison, CapacityExcess, CircuitMove, ConditionComparison, MoveTableRow, RebalanceReport } from './rebalanceResult.js';
-import { REBALANCE_CAUTIONS, REBALANCE_NOTES } from './rebalanceWording.js';
+import { REBALANCE_NOTES, rebalanceCautions } from './rebalanceWording.js';
 import { movedCircuitNumber } from './movedCircuitNumber.js';
 import { bankInServiceWords, listedBanksInService } from '../analysis/banksInServiceWords.js';
 import { assertInstallationModel } from '../board/modelGuards.js';
@@ -510,6 +510,6 @@ export function rebalanceInstallation(installation: Installation, study: unknown
       budgetReached: chosen.exactRan && chosen.budgetReached,
     },
     notes,
-    cautions: REBALANCE_CAUTIONS,
+    cautions: rebalanceCautions(tree.boards.some((b, k) => resolved.movableBoards[k] && b.hasNeutral)),
   };
 }

@@ -19,15 +19,26 @@ function extremesWords(check: VoltageCheck): string {
   return check.verdict === 'under' ? low : check.verdict === 'over' ? high : `${low}, ${high}`;
 }
 
-/** A score with the digits the text report gives it (a near-zero neutral still shows). */
-const scoreWords = (x: number) => (Math.abs(x) >= 100 ? x.toFixed(1) : Math.abs(x) >= 1 ? x.toFixed(2) : x.toFixed(3));
+/** Scores in one sentence with one precision, the one their smallest non-zero member needs (a near-zero neutral still shows). */
+function scoresWords(...xs: number[]): string[] {
+  const sizes = xs.map(Math.abs).filter((x) => x > 0);
+  const smallest = sizes.length ? Math.min(...sizes) : 0;
+  const digits = smallest >= 100 ? 1 : smallest >= 1 ? 2 : 3;
+  return xs.map((x) => x.toFixed(digits));
+}
 
-export const REBALANCE_CAUTIONS: readonly string[] = [
+const SHARED_NEUTRAL_CAUTION = 'Circuits that share a neutral (multi-wire branch circuits) must stay on different lines, and keep their common disconnect: check before moving either.';
+
+/** The cautions of a rebalancing study; the shared-neutral one only where a board circuits may move on has a neutral. */
+export const rebalanceCautions = (anyNeutral: boolean): readonly string[] => [
   'Moving a circuit is work on live-capable equipment: isolate and prove dead first; the work is for a qualified electrician under local codes and licensed practice.',
-  'Circuits that share a neutral (multi-wire branch circuits) must stay on different lines, and keep their common disconnect: check before moving either.',
+  ...(anyNeutral ? [SHARED_NEUTRAL_CAUTION] : []),
   'Keep residual-current and arc-fault devices with their circuits, and update the circuit chart and labels after the work.',
-  'Figures assume the stated load conditions; measure the line and neutral currents after the work.',
+  `Figures assume the stated load conditions; measure the ${anyNeutral ? 'line and neutral currents' : 'line currents'} after the work.`,
 ];
+
+/** Every caution a rebalancing report may carry (a board with a neutral). */
+export const REBALANCE_CAUTIONS: readonly string[] = rebalanceCautions(true);
 
 export const REBALANCE_NOTES = {
   banksInService: (banks: readonly string[]) =>
@@ -55,8 +66,10 @@ export const REBALANCE_NOTES = {
   nothingToMove: 'No circuit on this board can move (three-phase, pinned, or the supply offers no other connection).',
   alreadyBest: 'The present wiring is already the best found: no moves.',
   /** No move within the limit, where more moves would lower the score (fast model). */
-  limitKeepsWiring: (limit: number, moves: number, now: number, free: number) =>
-    `${limit === 0 ? 'The move limit of 0 allows no move' : `No move within the limit of ${limit} lowers the score`}, so the present wiring stays; without the limit, ${moves} move${moves === 1 ? '' : 's'} would take the score from ${scoreWords(now)} to ${scoreWords(free)} (fast model).`,
+  limitKeepsWiring: (limit: number, moves: number, now: number, free: number) => {
+    const [nowWords, freeWords] = scoresWords(now, free);
+    return `${limit === 0 ? 'The move limit of 0 allows no move' : `No move within the limit of ${limit} lowers the score`}, so the present wiring stays; without the limit, ${moves} move${moves === 1 ? '' : 's'} would take the score from ${nowWords} to ${freeWords} (fast model).`;
+  },
   solvedNotBetter: (before: number, after: number) =>
     `The network re-solve scores the moved board ${after.toFixed(3)} against ${before.toFixed(3)} now: not better, so keep the present wiring (voltage drop or load models differ from the fast model here).`,
   modelDiffers: (percent: number) =>

@@ -78,7 +78,7 @@ function controllerFacts(c: ControllerSettings): ReportBlock {
       ['Current transformer', `${amps(c.ctPrimaryA)}/${amps(c.ctSecondaryA)} A${c.ctChosen ? ' (the next standard primary above 1.25 × the largest line current; use yours if it differs)' : ''}`],
       ['Response threshold (C/k)', `${fixed(c.responseThresholdA, 3)} A for the smallest step (${fixed(c.smallestStepKvar, 2)} kvar at nominal voltage); set ${fixed(c.responseSettingA, 3)} A (${c.settingFraction} × C/k)`],
       ['Power-factor band', band],
-      ['Switching', `delay ${c.switchingDelayS} s; a step is switched on again no sooner than ${c.reconnectionDelayS} s after it went off (discharge time ${c.dischargeTimeS} s)`],
+      ['Switching', `delay ${c.switchingDelayS} s; a step is switched on again no sooner than ${c.reconnectionDelayS} s after it went off (discharge time ${c.dischargeTimeS} s, ${c.dischargeRule})`],
     ],
   };
 }

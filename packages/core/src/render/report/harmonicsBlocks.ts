@@ -6,6 +6,7 @@
  */
 import type {
   CapacitorDuty,
+  DistortionReading,
   HarmonicLineReading,
   JointScan,
   LoadSpectrumNote,
@@ -45,7 +46,20 @@ export function harmonicCurrentTable(lines: readonly HarmonicLineReading[], neut
 }
 
 /** Each line's voltage with harmonics and its true and displacement power factor. */
-export function harmonicVoltageTable(lines: readonly HarmonicLineReading[], label: PhaseLabeller, caption: string): ReportBlock {
+export function harmonicVoltageTable(
+  h: { readonly lines: readonly HarmonicLineReading[]; readonly lineToLine: readonly { readonly pair: string; readonly voltage: DistortionReading }[]; readonly hasNeutral: boolean },
+  label: PhaseLabeller,
+  caption: string,
+): ReportBlock {
+  const { lines } = h;
+  // Without a neutral only the line-to-line voltages exist at the board.
+  if (!h.hasNeutral && h.lineToLine.length)
+    return {
+      kind: 'table',
+      caption: caption.replace('Voltages and power factor', 'Line-to-line voltages'),
+      columns: [{ label: 'Lines' }, { label: 'rms V', align: 'right' }, { label: 'THD %', align: 'right' }],
+      rows: h.lineToLine.map((p) => [label(p.pair), fixed(p.voltage.rms, 1), orDash(p.voltage.thdPercent, 1)]),
+    };
   return {
     kind: 'table',
     caption,

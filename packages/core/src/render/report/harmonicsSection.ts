@@ -16,7 +16,7 @@ export function harmonicsSection(h: HarmonicsReport): ReportSection {
   const blocks: ReportBlock[] = [
     { kind: 'paragraph', text: `Orders solved: ${h.orders.join(', ')}. State of the bank for the figures below: ${h.state}.` },
     harmonicCurrentTable(h.lines, h.neutral, label, 'Line and neutral currents with harmonics'),
-    harmonicVoltageTable(h.lines, label, 'Voltages and power factor at the board'),
+    harmonicVoltageTable(h, label, 'Voltages and power factor at the board'),
   ];
   if (h.neutral) blocks.push(...neutralBlocks(h.neutral));
   if (h.tdd) blocks.push(tddTable(h.tdd, label, 'at the feed'));

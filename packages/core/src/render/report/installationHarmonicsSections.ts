@@ -76,7 +76,7 @@ export function installationHarmonicsSections(r: InstallationHarmonicsReport, id
     const feeder = b.fedFrom === null ? 'the service feeder' : `the feeder from ${b.fedFrom}`;
     const blocks: ReportBlock[] = [
       harmonicCurrentTable(b.lines, b.neutral, label, `Currents in ${feeder} into ${b.board}`),
-      harmonicVoltageTable(b.lines, label, `Voltages and power factor at the busbar of ${b.board}`),
+      harmonicVoltageTable(b, label, `Voltages and power factor at the busbar of ${b.board}`),
       voltageDistortionTable(b.voltageDistortion, label, `Bus voltage distortion at ${b.board}`),
     ];
     if (b.neutral) blocks.push(...neutralBlocks(b.neutral));

@@ -3,12 +3,14 @@
  * installation: an overview (a row per board, the feeder loading, the bank) and a section per board
  * with the same blocks a board's study has, its currents being its incomer's.
  */
+import type { VoltageUnbalanceLimit } from '../../board/conventions/unbalanceLimits.js';
 import { bankInServiceWords, BANKS_IN_SERVICE_BASIS } from '../../analysis/banksInServiceWords.js';
 import type { ProfileBankResult, ProfileResult } from '../../profile/studyProfile.js';
 import type { InstallationProfileResult } from '../../profile/studyInstallationProfile.js';
 import type { ProfileSummary, ResolvedLimits } from '../../profile/summariseFigures.js';
 import { fixed } from '../svgText.js';
 import { billingPowerFactorText } from '../../profile/billingPowerFactor.js';
+import { contactorLifeWords } from '../../profile/profileWording.js';
 import type { ReportBlock, ReportSection } from './reportDocument.js';
 import { labellerOf, type PhaseNaming } from '../../board/conventions/phaseNames.js';
 
@@ -37,6 +39,9 @@ interface BoardProfileView {
 }
 
 /** The facts, the currents and the voltages of one board, then its charts. */
+/** The board region's unbalance index, capitalised, with its definition where its name does not say it. */
+const unbalanceWords = (u: VoltageUnbalanceLimit) => `${u.name[0]!.toUpperCase()}${u.name.slice(1)}${u.definition ? ` (${u.definition}; ${u.source})` : ` (${u.source})`}`;
+
 function boardBlocks(p: BoardProfileView, charts: readonly ProfileChart[], naming: PhaseNaming, figurePrefix: string): ReportBlock[] {
   const s = p.before;
   const label = labellerOf(naming);
@@ -49,7 +54,14 @@ function boardBlocks(p: BoardProfileView, charts: readonly ProfileChart[], namin
         ['Reactive energy lagging / leading', `${fixed(s.energy.kvarhLagging, 0)} kvarh / ${fixed(s.energy.kvarhLeading, 0)} kvarh`],
         ['Billing power factor', billingPowerFactorText(s.energy.billingPf)],
         ['Hours importing at a leading PF', fixed(s.leadingHours, 1)],
-        ...((s.unbalance ? [['Voltage unbalance, highest / 95th percentile', `${fixed(s.unbalance.maxPercent, 2)} % (${s.unbalance.maxAt}) / ${fixed(s.unbalance.p95Percent, 2)} %`]] : []) as [string, string][]),
+        ...((s.unbalance
+          ? [
+              [
+                `${unbalanceWords(p.limits.unbalance)}, highest / 95th percentile / hours above ${limitPercent(p.limits.unbalancePercent)} %`,
+                `${fixed(s.unbalance.maxPercent, 2)} % (${s.unbalance.maxAt}) / ${fixed(s.unbalance.p95Percent, 2)} % / ${fixed(s.unbalance.hoursAbove, 1)}`,
+              ],
+            ]
+          : []) as [string, string][]),
         [`Hours below ${limitPercent(p.limits.voltageLowPercent)} % / above ${limitPercent(p.limits.voltageHighPercent)} % (${bandWords(p.limits)})`, `${fixed(s.hoursVoltageLow, 1)} / ${fixed(s.hoursVoltageHigh, 1)}`],
         ...(s.hoursCollapsed > 0 ? ([['Hours with a phase below 50 % of nominal (the supply cannot carry the load: a collapse)', fixed(s.hoursCollapsed, 2)]] as [string, string][]) : []),
       ],
@@ -58,7 +70,7 @@ function boardBlocks(p: BoardProfileView, charts: readonly ProfileChart[], namin
       kind: 'table',
       caption: p.currentsCaption,
       columns: [{ label: 'Conductor' }, { label: 'Highest A', align: 'right' }, { label: 'When' }, { label: '99th % A', align: 'right' }, { label: '95th % A', align: 'right' }, { label: 'Rating A', align: 'right' }, { label: 'Hours over', align: 'right' }],
-      rows: s.conductors.map((c) => [label(c.conductor), fixed(c.maxA, 1), c.maxAt, fixed(c.p99A, 1), fixed(c.p95A, 1), orDash(c.ratingA, 0), orDash(c.hoursAboveLimit, 1)]),
+      rows: s.conductors.map((c) => [label(c.conductor), fixed(c.maxA, 1), c.maxAt ?? '—', fixed(c.p99A, 1), fixed(c.p95A, 1), orDash(c.ratingA, 0), orDash(c.hoursAboveLimit, 1)]),
       note: 'Hours over: above the conductor rating; for the neutral, above the neutral limit of the study.',
     },
     {
@@ -80,7 +92,8 @@ function bankBlock(b: ProfileBankResult, where = ''): ReportBlock {
       ['Billing power factor with the bank', billingPowerFactorText(b.after.energy.billingPf)],
       ['Hours leading with the bank', fixed(b.after.leadingHours, 1)],
       ['Largest voltage rise from the bank', `${fixed(b.voltageRisePercent, 2)} % (${b.voltageRiseAt})`],
-      ['Busiest contactor reaches its typical life in', b.yearsToContactorLife === null ? '—' : `${fixed(b.yearsToContactorLife, 1)} years`],
+      ['Busiest step’s contactor and its typical life', contactorLifeWords(b.yearsToContactorLife, 'it') ?? '—'],
+      ['Reconnection after a step goes off', `${b.settings.reconnectSeconds} s (discharge time ${b.settings.dischargeSeconds} s, ${b.settings.dischargeRule})`],
       ['Switching within an interval', b.withinInterval.words],
     ],
   };
@@ -92,6 +105,7 @@ function bankBlock(b: ProfileBankResult, where = ''): ReportBlock {
 export function profileSection(p: ProfileResult, charts: readonly ProfileChart[], naming: PhaseNaming = p.phaseNames): ReportSection {
   const blocks = boardBlocks({ ...p, currentsCaption: 'Conductor currents over the period' }, charts, naming, 'profile-');
   if (p.bank) blocks.push(bankBlock(p.bank));
+  if (p.bank?.warnings.length) blocks.push({ kind: 'list', tone: 'warning', items: p.bank.warnings });
   if (p.cautions.length) blocks.push({ kind: 'list', tone: 'caution', items: p.cautions });
   return { id: 'profile', title: 'Load over time', blocks };
 }
@@ -153,6 +167,7 @@ export function installationProfileSections(
   ];
   if (r.bank) {
     overview.push(bankBlock(r.bank, ` on ${r.bank.board}`));
+    if (r.bank.warnings.length) overview.push({ kind: 'list', tone: 'warning', items: r.bank.warnings });
     if (r.bank.board !== main.board && main.after)
       overview.push({
         kind: 'facts',
