@@ -14,8 +14,11 @@ export const isExportKW = (kW: number): boolean => fixed(kW, 2).startsWith('-');
 
 export function powerFactorText(r: Pick<PowerReading, 'pf' | 'sense' | 'kVA' | 'kW' | 'kvar'>, none = '-'): string {
   if (typeof r !== 'object' || r === null) throw argumentIssueError('reading', 'a power reading { pf, sense, kVA, kW, kvar } of a solved board', r);
-  for (const key of ['kVA', 'kW', 'kvar'] as const) checkNumberArgument(r[key], `reading.${key}`, 'a finite number');
-  if (r.pf !== null) checkNumberArgument(r.pf, 'reading.pf', 'a power factor from -1 to 1, or null where no power flows', (x) => Math.abs(x) <= 1 + 1e-9);
+  // Checked inline first (a report calls this for every circuit): the messages are built only for a bad reading.
+  if (!(Number.isFinite(r.kVA) && Number.isFinite(r.kW) && Number.isFinite(r.kvar) && (r.pf === null || Math.abs(r.pf) <= 1 + 1e-9))) {
+    for (const key of ['kVA', 'kW', 'kvar'] as const) checkNumberArgument(r[key], `reading.${key}`, 'a finite number');
+    if (r.pf !== null) checkNumberArgument(r.pf, 'reading.pf', 'a power factor from -1 to 1, or null where no power flows', (x) => Math.abs(x) <= 1 + 1e-9);
+  }
   if (r.pf === null || fixed(r.kVA, 2) === '0.00') return none;
   const pf = fixed(Math.abs(r.pf), 3);
   if (isExportKW(r.kW)) return `${pf} export`;

@@ -73,10 +73,15 @@ export const asPrinted = (percent: number): number => Math.round(percent * 10) /
 
 /** Where a voltage (% of nominal) stands against the limits, judged on its printed figure. */
 export function judgeVoltage(limits: VoltageLimits, percent: number): 'under' | 'over' | 'within' {
-  // NaN compares false with both ends and would read as within the limits.
-  checkNumberArgument(percent, 'percent', 'a voltage as a finite percentage of nominal, e.g. 97.4');
-  checkNumberArgument(limits?.underPercent, 'limits.underPercent', 'a finite percentage below nominal, from 0 to 100', (x) => x >= 0 && x <= 100);
-  checkNumberArgument(limits?.overPercent, 'limits.overPercent', 'a finite percentage above nominal, 0 or more', (x) => x >= 0);
+  // NaN compares false with both ends and would read as within the limits. Checked inline first: this runs
+  // for every branch of every board and interval, so the good path builds no closure and no path text.
+  const under = limits?.underPercent;
+  const over = limits?.overPercent;
+  if (!(Number.isFinite(percent) && typeof under === 'number' && under >= 0 && under <= 100 && typeof over === 'number' && over >= 0 && Number.isFinite(over))) {
+    checkNumberArgument(percent, 'percent', 'a voltage as a finite percentage of nominal, e.g. 97.4');
+    checkNumberArgument(under, 'limits.underPercent', 'a finite percentage below nominal, from 0 to 100', (x) => x >= 0 && x <= 100);
+    checkNumberArgument(over, 'limits.overPercent', 'a finite percentage above nominal, 0 or more', (x) => x >= 0);
+  }
   const p = asPrinted(percent);
   if (p < 100 - limits.underPercent) return 'under';
   if (p > 100 + limits.overPercent) return 'over';
