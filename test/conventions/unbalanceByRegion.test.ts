@@ -92,3 +92,30 @@ describe('voltage unbalance by region', () => {
     expect(fourWire.cautions).toContain(shared);
   });
 });
+
+describe('the installation summary shows the region’s unbalance index', () => {
+  it('a North-American installation’s column is the line-to-line deviation, named under the table; an IEC one stays |V2|/|V1|', async () => {
+    const { solveInstallation } = await import('@trivar/core');
+    const { runTrivar } = await import('../cli/runTrivar.js');
+    const yard = (region: 'iec' | 'north-america') => ({
+      name: 'Tamarack yard',
+      supply: { system: 'three-phase-3wire', voltage: { lineToLine: 480 }, frequencyHz: 60, transformer: { kVA: 150, impedancePercent: 5, xOverR: 4 } },
+      conventions: { region },
+      boards: [
+        { name: 'Main', loads: [{ name: 'head saw', connection: 'ABC-delta', kW: 30, pf: 0.85 }] },
+        { name: 'Kiln', fedFrom: 'Main', feeder: { lengthFt: 200, line: { awg: '2' } }, loads: [{ name: 'kiln heater', connection: 'A-B', kW: 40, pf: 1 }] },
+      ],
+    });
+    for (const region of ['north-america', 'iec'] as const) {
+      const spec = yard(region);
+      const kiln = solveInstallation(spec).boards[1]!.result.unbalance!;
+      const out = runTrivar(['solve', '-'], JSON.stringify(spec)).stdout;
+      const row = out.split('\n').find((l) => l.includes('└ Kiln'))!;
+      const figure = region === 'iec' ? kiln.voltageFactorPercent : kiln.lineVoltageRatePercent;
+      expect(row).toContain(` ${figure.toFixed(2)} `);
+      expect(kiln.voltageFactorPercent.toFixed(2)).not.toBe(kiln.lineVoltageRatePercent.toFixed(2));
+      if (region === 'iec') expect(out).toContain('VUF %');
+      else expect(out).toMatch(/V unbal\.: the largest deviation of a line-to-line voltage from the\s+average of the three/);
+    }
+  });
+});

@@ -283,6 +283,8 @@ export type { VoltageNotation, NotationReading } from './board/conventions/volta
 export { readVoltageNotation, writeVoltageNotation, NOTATION_RATIO_TOLERANCE } from './board/conventions/voltageNotation.js';
 export type { VoltageLimits, VoltageLimitPreset, VoltageLimitPresetName } from './board/conventions/voltageLimits.js';
 export { VOLTAGE_LIMIT_PRESETS, judgeVoltage, bandVolts, bandVoltsWords, bandWords } from './board/conventions/voltageLimits.js';
+export type { VoltageUnbalanceLimit } from './board/conventions/unbalanceLimits.js';
+export { VOLTAGE_UNBALANCE_LIMITS, unbalanceFigure } from './board/conventions/unbalanceLimits.js';
 export { judgedNominals } from './analysis/voltageCheck.js';
 export type { Region, RegionBasis } from './board/conventions/region.js';
 export { inferRegion } from './board/conventions/region.js';

@@ -1,5 +1,5 @@
 /** InstallationResult → the text report of `trivar solve` on an installation: a summary per board and per feeder. */
-import { BANKS_IN_SERVICE_BASIS, bandWords, bankInServiceWords, labelIn, type InstallationResult } from '@trivar/core';
+import { BANKS_IN_SERVICE_BASIS, bandWords, bankInServiceWords, labelIn, unbalanceFigure, VOLTAGE_UNBALANCE_LIMITS, type InstallationResult } from '@trivar/core';
 import { fixed, renderTable, section } from './textTable.js';
 import { treeName } from './boardTree.js';
 import { renderSolveReport } from './solveReport.js';
@@ -35,7 +35,17 @@ function limitsLine(r: InstallationResult): string {
   return wrapText(`voltage limits ${main}${others ? `, ${others} board${others === 1 ? ' with limits of its own' : 's with limits of their own'}` : ''}: ${verdict}`, '  ');
 }
 
+/** The voltage unbalance index the installation's region judges (unbalanceLimits.ts): |V2|/|V1|, or the line-to-line deviation. */
+const unbalanceLimitOf = (r: InstallationResult) => VOLTAGE_UNBALANCE_LIMITS[r.boards[0]!.result.conventions.region];
+
+/** The unbalance column's index in words where it is not |V2|/|V1| (its header says that one). */
+function unbalanceWords(r: InstallationResult): string {
+  const limit = unbalanceLimitOf(r);
+  return limit.definition === null ? '' : `V unbal.: ${limit.definition} (${limit.source}); `;
+}
+
 function boardTable(r: InstallationResult): string {
+  const limit = unbalanceLimitOf(r);
   const rows = r.boards.map((b) => {
     const res = b.result;
     // The voltages the verdict beside them judges (line-to-neutral, line-to-line, at the loads).
@@ -44,7 +54,7 @@ function boardTable(r: InstallationResult): string {
       fixed(res.voltageCheck.lowest.percent, 1),
       fixed(res.voltageCheck.highest.percent, 1),
       res.neutral ? fixed(res.neutral.current.magnitude, 1) : res.board.withoutNeutral ? '-' : '',
-      res.unbalance ? fixed(res.unbalance.voltageFactorPercent, 2) : '',
+      res.unbalance ? fixed(unbalanceFigure(limit, res.unbalance), 2) : '',
       fixed(res.totals.kW, 2),
       fixed(res.totals.kvar, 2),
       fixed(res.source.kW, 2),
@@ -58,7 +68,7 @@ function boardTable(r: InstallationResult): string {
       { header: 'min %nom' },
       { header: 'max %nom' },
       { header: 'N A' },
-      { header: 'VUF %' },
+      { header: limit.index === 'negative-sequence' ? 'VUF %' : 'V unbal. %' },
       { header: 'own kW' },
       { header: 'own kvar' },
       { header: 'fed kW' },
@@ -161,7 +171,7 @@ export function renderInstallationReport(r: InstallationResult, options: Install
   const parts = [
     [r.installation.name, `${SYSTEM_WORDS[r.installation.system] ?? r.installation.system} · ${volts} · ${first.frequencyHz} Hz · ${r.installation.boardCount} board${r.installation.boardCount === 1 ? '' : 's'}`].join('\n'),
     ...collapseBlock(r),
-    section('Boards') + boardTable(r) + `\n${note("min and max %nom: the lowest and highest voltage the limits judge (line-to-neutral, line-to-line, at the loads); own: this board's circuits; fed: what enters its feeder at the sending end, the feeder's loss and the boards beyond it included (main board: what the source EMFs deliver).")}`,
+    section('Boards') + boardTable(r) + `\n${note(`min and max %nom: the lowest and highest voltage the limits judge (line-to-neutral, line-to-line, at the loads); ${unbalanceWords(r)}own: this board's circuits; fed: what enters its feeder at the sending end, the feeder's loss and the boards beyond it included (main board: what the source EMFs deliver).`)}`,
     section('Feeders') +
       feederTable(r) +
       `\n${note(`drop: |V| at the sending end minus |V| at the board, the phase that changes most (negative: a rise), % of nominal; for the service feeder, from the source EMF. loss: conductor losses, ${ideal ? 'the source being ideal (no windings to lose power in)' : "the service feeder's with the source windings"}.`)}` +
