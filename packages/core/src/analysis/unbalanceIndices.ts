@@ -17,11 +17,11 @@ export function deviationFromAveragePercent(magnitudes: readonly number[], noise
   return largest <= noiseFloor ? 0 : (100 * largest) / average;
 }
 
-/** The line-to-line deviation index of three bus voltages (re, im each), %: the line-voltage unbalance rate above, without an array per call (the profile's interval loops). */
-export function lineDeviationPercentOf(ar: number, ai: number, br: number, bi: number, cr: number, ci: number): number {
-  const ab = Math.hypot(ar - br, ai - bi);
-  const bc = Math.hypot(br - cr, bi - ci);
-  const ca = Math.hypot(cr - ar, ci - ai);
+/**
+ * The line-to-line deviation index of three line-to-line magnitudes, %: the line-voltage unbalance rate
+ * above, without an array per call (the profile's interval loops, which have the magnitudes already).
+ */
+export function lineDeviationPercentOf(ab: number, bc: number, ca: number): number {
   const average = (ab + bc + ca) / 3;
   return average === 0 ? 0 : (100 * Math.max(Math.abs(ab - average), Math.abs(bc - average), Math.abs(ca - average))) / average;
 }

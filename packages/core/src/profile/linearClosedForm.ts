@@ -173,6 +173,6 @@ export function solveLinearClosedForm(net: BatchNetwork, columns: DriverColumns,
     const ni2 = sumI - ti;
     const m1 = pr * pr + pi * pi;
     vuf[i] = m1 === 0 ? 0 : 100 * Math.sqrt((nr2 * nr2 + ni2 * ni2) / m1);
-    deviation[i] = lineDeviationPercentOf(b0r, b0i, b1r, b1i, b2r, b2i);
+    deviation[i] = lineDeviationPercentOf(l01[i]!, l12[i]!, l20[i]!);
   }
 }

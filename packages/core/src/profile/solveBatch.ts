@@ -93,7 +93,7 @@ export function recordInterval(state: IntervalState, sequence: 'ABC' | 'ACB', ou
     const di = s * (br - cr);
     const m1 = modulus(sumR + dr, sumI + di);
     out.unbalancePercent[i] = m1 === 0 ? 0 : (100 * modulus(sumR - dr, sumI - di)) / m1;
-    out.lineDeviationPercent[i] = lineDeviationPercentOf(ar, ai, br, bi, cr, ci);
+    out.lineDeviationPercent[i] = lineDeviationPercentOf(out.lineToLineV[0]![i]!, out.lineToLineV[1]![i]!, out.lineToLineV[2]![i]!);
   }
 }
 
