@@ -16,9 +16,11 @@ import {
   planDrivers,
   rebalanceBoard,
   solveBoard,
+  solveInstallation,
   studyProfile,
   REBALANCE_CAUTIONS,
 } from '@trivar/core';
+import { runTrivar } from '../cli/runTrivar.js';
 
 const sawmill = (region: 'iec' | 'north-america', kilnKW: number) => ({
   name: 'Tamarack sawmill',
@@ -94,9 +96,7 @@ describe('voltage unbalance by region', () => {
 });
 
 describe('the installation summary shows the region’s unbalance index', () => {
-  it('a North-American installation’s column is the line-to-line deviation, named under the table; an IEC one stays |V2|/|V1|', async () => {
-    const { solveInstallation } = await import('@trivar/core');
-    const { runTrivar } = await import('../cli/runTrivar.js');
+  it('a North-American installation’s column is the line-to-line deviation, named under the table; an IEC one stays |V2|/|V1|', () => {
     const yard = (region: 'iec' | 'north-america') => ({
       name: 'Tamarack yard',
       supply: { system: 'three-phase-3wire', voltage: { lineToLine: 480 }, frequencyHz: 60, transformer: { kVA: 150, impedancePercent: 5, xOverR: 4 } },

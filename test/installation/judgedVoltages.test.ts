@@ -4,7 +4,11 @@
  * the one-line drawing and the scenario study read that voltage, so none of them sits beside an
  * UNDER verdict with a figure inside the band.
  */
+import { mkdtempSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
+import { runTrivar } from '../cli/runTrivar.js';
 import { normaliseInstallation, parseInstallation, renderOneLineDiagram, solveInstallation, studyInstallationScenarios, type InstallationSpec } from '@trivar/core';
 
 const spec = {
@@ -49,11 +53,7 @@ describe('the lowest voltage judged, not the lowest phase voltage', () => {
 });
 
 describe('interval data: hours outside the band count the line-to-line voltages', () => {
-  it('three hours of welding are three hours below 95 %, the A-B row giving the lowest figure', async () => {
-    const { mkdtempSync, writeFileSync } = await import('node:fs');
-    const { join } = await import('node:path');
-    const { tmpdir } = await import('node:os');
-    const { runTrivar } = await import('../cli/runTrivar.js');
+  it('three hours of welding are three hours below 95 %, the A-B row giving the lowest figure', () => {
     const dir = mkdtempSync(join(tmpdir(), 'trivar-judged-'));
     const { profile: _p, ...board } = spec as unknown as Record<string, unknown>;
     writeFileSync(join(dir, 'bay.json'), JSON.stringify(board));
