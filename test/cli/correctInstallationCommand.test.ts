@@ -26,7 +26,7 @@ describe('trivar correct on an installation file', () => {
     expect(r.code).toBe(0);
     expect(r.stdout).toContain('Tannery Lane works: correction equipment on Press shop');
     expect(r.stdout).toContain('The target is judged at the incomer of Press shop');
-    expect(r.stdout).toMatch(/Main switchboard\s+98\.7→99\.2\s+112\.7→94\.7\s+10\.0→9\.6\s+0\.807→0\.973/);
+    expect(r.stdout).toMatch(/Main switchboard\s+98\.7→99\.3\s+112\.7→94\.7\s+10\.0→9\.6\s+0\.807→0\.973/);
     expect(r.stdout).toMatch(/└ Press shop \*/);
     expect(r.stdout).toContain('Feeders, before → after');
     expect(r.stdout).toMatch(/PF at the source\s+0\.802 → 0\.971/);
@@ -52,7 +52,7 @@ describe('trivar correct on an installation file', () => {
       '  - { name: Farmhouse, loads: [{ name: house, connection: A-N, kW: 3, pf: 0.98 }] }',
       '  - name: Barn',
       '    fedFrom: Farmhouse',
-      '    feeder: { lengthM: 360, line: { mm2: 25, ratingA: 100 }, neutral: { mm2: 25 } }',
+      '    feeder: { lengthM: 380, line: { mm2: 25, ratingA: 100 }, neutral: { mm2: 25 } }',
       '    loads: [{ name: mill motor, connection: ABC-delta, kW: 30, pf: 0.7 }, { name: lights, connection: B-N, kW: 1, pf: 0.95 }]',
     ].join('\n');
     const r = runTrivar(['correct', '-', '--board', 'Barn', '--arrangement', 'delta-bank', '--pf', '0.98'], text);

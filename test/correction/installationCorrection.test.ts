@@ -245,7 +245,7 @@ describe('light load on a board that feeds others scales everything its incomer 
 });
 
 describe('voltage band: a bank on a far board lifts a load back inside the band', () => {
-  // Invented: a barn 360 m from the farmhouse on 25 mm² copper, a mill motor at PF 0.7.
+  // Invented: a barn 380 m from the farmhouse on 25 mm² copper, a mill motor at PF 0.7.
   const spec = parseInstallation({
     name: 'far barn',
     supply: { system: 'three-phase-4wire', voltage: { lineToLine: 400 }, frequencyHz: 50, transformer: { kVA: 100, impedancePercent: 4, xOverR: 3 } },
@@ -254,7 +254,7 @@ describe('voltage band: a bank on a far board lifts a load back inside the band'
       {
         name: 'Barn',
         fedFrom: 'Farmhouse',
-        feeder: { lengthM: 360, line: { mm2: 25, ratingA: 100 }, neutral: { mm2: 25 } },
+        feeder: { lengthM: 380, line: { mm2: 25, ratingA: 100 }, neutral: { mm2: 25 } },
         loads: [
           { name: 'mill motor', connection: 'ABC-delta', kW: 30, pf: 0.7 },
           { name: 'lights', connection: 'B-N', kW: 1, pf: 0.95 },
@@ -262,12 +262,12 @@ describe('voltage band: a bank on a far board lifts a load back inside the band'
       },
     ],
   });
-  it('the lights go from below the band (89.7 %) to inside it (91.6 %); the effect counts 1 → 0', () => {
+  it('the lights go from below the band (89.5 % of 230 V) to inside it (91.5 %); the effect counts 1 → 0', () => {
     const c = correctInstallation(installationOf(spec), { arrangement: 'delta-bank', target: { pf: 0.98 } }, { board: 'Barn' });
     const barn = c.effect.boards.find((b) => b.name === 'Barn')!;
     expect(barn.loadsOutsideVoltageBand).toEqual({ before: 1, after: 0, change: -1 });
-    expectClose(barn.lowestVoltagePercent.before, 89.665, { rel: 0, abs: 5e-3 });
-    expectClose(barn.lowestVoltagePercent.after, 91.613, { rel: 0, abs: 5e-3 });
+    expectClose(barn.lowestVoltagePercent.before, 89.484, { rel: 0, abs: 5e-3 });
+    expectClose(barn.lowestVoltagePercent.after, 91.517, { rel: 0, abs: 5e-3 });
     // The counts are the boards' own undervoltage warnings, before and after.
     const warned = (r: InstallationResult) => r.boards.find((b) => b.name === 'Barn')!.result.warnings.filter((w) => w.code === 'undervoltage').length;
     expect([warned(c.effect.before), warned(c.effect.after)]).toEqual([1, 0]);

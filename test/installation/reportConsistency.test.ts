@@ -80,7 +80,7 @@ boards:
     expect(r.feeders.map((f) => f.description)).toEqual(['350 kcmil Cu, 40 ft at 75 °C', '1/0 AWG Al, 120 ft at 75 °C']);
   });
   it.each([
-    [{ system: 'three-phase-4wire', voltage: { lineToLine: 400 }, frequencyHz: 50 }, '230.9/400 V'],
+    [{ system: 'three-phase-4wire', voltage: { lineToLine: 400 }, frequencyHz: 50 }, '230/400 V'], // the IEC 60038 pair, not 400/√3 = 230.9
     [{ voltage: '230/400', frequencyHz: 50 }, '230/400 V'],
     [{ system: 'split-phase', voltage: { lineToNeutral: 120 }, frequencyHz: 60 }, '120/240 V'],
     [{ system: 'three-phase-3wire', voltage: { lineToLine: 480 }, frequencyHz: 60 }, '480 V'],

@@ -47,7 +47,7 @@ describe('installation report', () => {
     expect(doc.sections.map((s) => s.id)).toEqual(['installation', 'feeders', 'totals', ...boardIds, 'assumptions', 'standards', 'cautions']);
     expect(doc.sections.filter((s) => s.id.startsWith('board-')).map((s) => s.title)).toEqual(result.boards.map((b) => `Board: ${b.name}`));
     expect(doc.title).toBe('Maple Court riser');
-    expect(doc.subtitle).toBe('Installation report · 6 boards · 230.9/400 V · 50 Hz');
+    expect(doc.subtitle).toBe('Installation report · 6 boards · 230/400 V · 50 Hz');
   });
 
   it('describes the source, the boards and the feeder tree, with the one-line drawing', () => {
@@ -108,9 +108,9 @@ describe('installation report', () => {
       expect(schedule.rows.map((r) => r[2])).toEqual(own.map((l) => l.connection));
       expect(schedule.rows.map((r) => Number(r[7]))).toEqual(b.result.loads.filter((l) => l.origin === 'board').map((l) => Number(l.currentA.toFixed(1))));
       const limits = table(s, /against the limits/);
-      // Three phase voltages and three line-to-line voltages, each against 230.9 V or 400 V ± 10 %.
+      // Three phase voltages and three line-to-line voltages, each against 230 V or 400 V ± 10 % (the IEC 60038 pair).
       expect(limits.rows.map((r) => r[0])).toEqual(['A-N', 'B-N', 'C-N', 'A-B', 'B-C', 'C-A']);
-      expect(limits.rows[0]![3]).toBe('207.8 – 254.0');
+      expect(limits.rows[0]![3]).toBe('207.0 – 253.0');
       expect(limits.rows[3]![3]).toBe('360.0 – 440.0');
       b.result.phases.forEach((p, k) => {
         expect(Number(limits.rows[k]![2])).toBe(Number(p.voltagePercent.toFixed(1)));
@@ -168,7 +168,7 @@ describe('installation report', () => {
     const limits = table(floor4, /against the limits/);
     expect(limits.note).toContain('±5 % of nominal (c84-service-a)');
     expect(limits.rows.map((r) => r[0])).toEqual(['L1-N', 'L2-N', 'L3-N', 'L1-L2', 'L2-L3', 'L3-L1']);
-    expect(limits.rows[0]![3]).toBe('219.4 – 242.5');
+    expect(limits.rows[0]![3]).toBe('218.5 – 241.5');
     expect(limits.note).toContain('ANSI C84.1 Range A');
     // Verdicts agree with the board's own voltage check (which also judges every load).
     const floor4Result = result.boards.find((b) => b.name === 'Floor 4')!.result;

@@ -138,9 +138,9 @@ describe('one-line drawing of an installation', () => {
       expect(f.x).toBe(floors[k]!.x);
       expect(f.y - floors[k]!.y).toBe(ONE_LINE_LAYOUT.rowPitch);
     });
-    // The lowest voltage is marked on its board (Floor 4, 96.9 %).
+    // The lowest voltage is marked on its board (Floor 4, 97.3 % of 230 V).
     expect(result.totals.lowestVoltageBoard).toBe('Floor 4');
-    expect(svg).toMatch(/V 96\.9–99\.7 %nom · lowest/);
+    expect(svg).toMatch(/V 97\.3–100\.1 %nom · lowest/);
   });
 
   it('a wide installation (more than three end boards) is drawn as a ladder, every check holding', () => {

@@ -2,6 +2,7 @@
 import { availableParallelism } from 'node:os';
 import { join } from 'node:path';
 import {
+  judgedNominalOf,
   boardSectionIds,
   checkIntervalSequence,
   driverColumns,
@@ -166,7 +167,7 @@ export async function runProfileInstallation(input: unknown, options: ProfileCom
   const study = await computeInstallationProfileStudy(spec, installation, options.data, options, io);
   const label = labellerOf(study.result.phaseNames);
   if (options.summaryCsv) writeOutputFile(options.summaryCsv, installationSummaryCsv(study.result, label));
-  if (options.intervalsCsv) writeOutputFile(options.intervalsCsv, installationIntervalCsv(study, installation.main.nominalLineToNeutralV, label));
+  if (options.intervalsCsv) writeOutputFile(options.intervalsCsv, installationIntervalCsv(study, judgedNominalOf(installation.main).ln, label));
   if (options.charts) {
     const dir = options.charts;
     for (const folder of folders.values()) makeOutputFolder(join(dir, folder));

@@ -1,5 +1,5 @@
 /** BoardResult → the human-readable report of `trivar solve`. */
-import { bandVoltsWords, bandWords, judgedNominals, labelIn, regionWords, signedPfText, assumedPfNote, sourceUnitsWords, type BoardResult } from '@trivar/core';
+import { bandVoltsWords, nominalVoltageWords, bandWords, judgedNominals, labelIn, regionWords, signedPfText, assumedPfNote, sourceUnitsWords, type BoardResult } from '@trivar/core';
 import { fixed, renderTable, renderTableWithin, section } from './textTable.js';
 import { REPORT_WIDTH, wrapText } from './wrapText.js';
 import { exportSentence, isExport, pfCell, varWords } from './powerFlowWords.js';
@@ -46,9 +46,7 @@ function systemWords(b: BoardResult['board']): string {
 export function headerLines(r: BoardResult): string[] {
   const b = r.board;
   const label = labeller(r);
-  const volts = b.nominalLineToLineV
-    ? `${fixed(b.nominalLineToLineV, 0)} V line-to-line, ${fixed(b.nominalLineToNeutralV, 1)} V line-to-neutral`
-    : `${fixed(b.nominalLineToNeutralV, 0)} V`;
+  const volts = nominalVoltageWords(b);
   const seq = b.system.startsWith('three') ? ` · sequence ${label(b.sequence)}` : '';
   return [
     wrapText(b.name, ''),

@@ -9,6 +9,7 @@ import { studyOpenNeutral } from './studyOpenNeutral.js';
 import type { BoardResult } from './boardResult.js';
 import type { BankInService } from '../board/boardModel.js';
 import type { BankInServiceReading, FeederReading, InstallationResult } from './installationResult.js';
+import { judgedNominalOf } from '../board/nominalVoltages.js';
 
 export interface AnalyseInstallationOptions extends SolveOptions {
   /** Also study a broken neutral in each board's feeder. @defaultValue the file's `studies.openNeutral` */
@@ -37,7 +38,7 @@ export function analyseInstallation(solution: InstallationSolution, options: Ana
     const s = solution.boards[b]!;
     const r = results[b]!;
     const parent = parentOf(b);
-    const ln = main.nominalLineToNeutralV;
+    const ln = judgedNominalOf(main).ln;
     const lines = main.phases.map((phase, k) => {
       const sending = parent === null ? Math.hypot(main.emf[k]!.re, main.emf[k]!.im) : results[parent]!.phases[k]!.voltage.magnitude;
       return {

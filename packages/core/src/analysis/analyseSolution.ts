@@ -5,6 +5,7 @@
 import { abs, absSquared, add, conj, mul, scale, sub, sum, toPhasor, ZERO, type ComplexValue } from '../complex.js';
 import { isThreePhase } from '../board/systemTopology.js';
 import { lineRatingOf, type PhaseId } from '../board/boardModel.js';
+import { judgedNominalOf } from '../board/nominalVoltages.js';
 import { terminalVoltage, type NetworkSolution } from '../network/solveNetwork.js';
 import { sequenceComponents, type SequenceSet } from './symmetricalComponents.js';
 import { deviationFromAveragePercent, motorDeratingFactor } from './unbalanceIndices.js';
@@ -56,7 +57,7 @@ const loadingOf = (currentA: number, ratingA: number | null): number | null => (
 
 function readPhases(solution: NetworkSolution, phaseVoltages: readonly ComplexValue[]): PhaseReading[] {
   const { board } = solution;
-  const ln = board.nominalLineToNeutralV;
+  const ln = judgedNominalOf(board).ln;
   return board.phases.map((phase, k) => {
     const v = phaseVoltages[k]!;
     const i = solution.lineCurrents[k]!;
@@ -75,9 +76,10 @@ function readPhases(solution: NetworkSolution, phaseVoltages: readonly ComplexVa
 
 function readLineToLine(solution: NetworkSolution, bus: readonly ComplexValue[]): LineToLineReading[] {
   const { board } = solution;
+  const nominal = judgedNominalOf(board);
   return PAIRS[board.system]!.map(([p, q]) => {
     const v = sub(bus[board.phases.indexOf(p)]!, bus[board.phases.indexOf(q)]!);
-    return { pair: `${p}-${q}`, voltage: toPhasor(v), voltagePercent: (100 * abs(v)) / (board.nominalLineToLineV ?? board.nominalLineToNeutralV) };
+    return { pair: `${p}-${q}`, voltage: toPhasor(v), voltagePercent: (100 * abs(v)) / (nominal.ll ?? nominal.ln) };
   });
 }
 
@@ -273,8 +275,9 @@ export function analyseSolution(solved: NetworkSolution): BoardResult {
       system: board.system,
       sequence: board.sequence,
       frequencyHz: board.frequencyHz,
-      nominalLineToNeutralV: board.nominalLineToNeutralV,
-      nominalLineToLineV: board.nominalLineToLineV,
+      nominalLineToNeutralV: judgedNominalOf(board).ln,
+      nominalLineToLineV: judgedNominalOf(board).ll,
+      ...(board.systemNominal ? { sourceNominal: { lineToNeutralV: board.nominalLineToNeutralV, lineToLineV: board.nominalLineToLineV } } : {}),
       neutralOpen: board.neutralOpen,
       ...(board.withoutNeutral ? { withoutNeutral: true as const } : {}),
       ...(hasIdealSource(board) ? { idealSource: true as const } : {}),

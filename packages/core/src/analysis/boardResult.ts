@@ -250,8 +250,11 @@ export interface BoardResult {
     readonly system: string;
     readonly sequence: 'ABC' | 'ACB';
     readonly frequencyHz: number;
+    /** The system's nominal voltages as the standards name them (230/400 V): every voltage percentage and limit is taken against these. */
     readonly nominalLineToNeutralV: number;
     readonly nominalLineToLineV: number | null;
+    /** Present where the balanced source is not exactly the system nominal: a 400 V source is 230.9 V to neutral, judged at 230 V. */
+    readonly sourceNominal?: { readonly lineToNeutralV: number; readonly lineToLineV: number | null };
     readonly neutralOpen: boolean;
     /** Present where no neutral reaches this board of a system that has one: its feeder, or one upstream, has line conductors only. */
     readonly withoutNeutral?: true;

@@ -1,6 +1,7 @@
 /** Per-load readings of a solved board: branch figures, totals, line current drawn, star-point shift. */
 import { abs, add, conj, mul, scale, sub, sum, toPhasor, ZERO, type ComplexValue } from '../complex.js';
 import type { LoadBranch, PhaseId } from '../board/boardModel.js';
+import { judgedBranchNominal } from '../board/nominalVoltages.js';
 import { terminalVoltage, type BranchState, type NetworkSolution } from '../network/solveNetwork.js';
 import { powerParts, powerReading } from './powerReading.js';
 import type { BranchReading, LoadReading } from './boardResult.js';
@@ -28,7 +29,7 @@ export function readLoads(solution: NetworkSolution, busVoltages: readonly Compl
         from: terminalLabel(b.from),
         to: terminalLabel(b.to),
         voltage: toPhasor(states[bi]!.voltage),
-        voltagePercent: (100 * abs(states[bi]!.voltage)) / b.vNominal,
+        voltagePercent: (100 * abs(states[bi]!.voltage)) / judgedBranchNominal(board, b),
         current: toPhasor(states[bi]!.current),
         ...powerParts(powers[bi]!),
       }),

@@ -25,14 +25,16 @@ import { labellerOf } from '../board/conventions/phaseNames.js';
 const openNeutralCautionsOf = (board: Board) => regionWords(conventionsOf(board).region, board.system).openNeutralCautions;
 import { OPEN_NEUTRAL_LIMITS, openNeutralFindings } from './openNeutralWording.js';
 import { assertBoardModel } from '../board/modelGuards.js';
+import { judgedBranchNominal, judgedNominalOf } from '../board/nominalVoltages.js';
 
 /** "No low-voltage rule": constant power held down to 5 % of nominal, low enough that no state this study reports gets there in practice. */
 const RULE_OFF_THRESHOLD = 0.05;
 
 /** What one line-to-neutral branch sees across it. */
-function loadReading(name: string, b: LoadBranch, voltage: ComplexValue, threshold: number, board?: string): OpenNeutralLoadReading {
+/** `nominalV`: the system nominal the branch is judged at (judgedBranchNominal). */
+function loadReading(name: string, b: LoadBranch, voltage: ComplexValue, threshold: number, nominalV: number, board?: string): OpenNeutralLoadReading {
   const band = WARNING_THRESHOLDS.voltageBandPercent;
-  const percent = (100 * abs(voltage)) / b.vNominal;
+  const percent = (100 * abs(voltage)) / nominalV;
   return {
     name: board === undefined ? name : `${name} (${board})`,
     ...(board === undefined ? {} : { board }),
@@ -69,7 +71,7 @@ function fedBoardReadings(board: Board, solution: NetworkSolution, threshold: nu
         const to = at(cb.to);
         // Energised as the board's own circuits are (both ends live), so the two lists follow one rule.
         if (!from || !to) continue;
-        out.push(loadReading(load.name, b, sub(from, to), threshold, sb.name));
+        out.push(loadReading(load.name, b, sub(from, to), threshold, judgedBranchNominal(board, b), sb.name));
       }
   }
   return out;
@@ -96,7 +98,7 @@ function readState(board: Board, solution: NetworkSolution, threshold: number): 
       if (b.to !== 'N' && b.from !== 'N') return;
       const state = solution.branches[li]![bi]!;
       if (!state.energised) return;
-      loads.push(loadReading(load.name, b, state.voltage, threshold));
+      loads.push(loadReading(load.name, b, state.voltage, threshold, judgedBranchNominal(board, b)));
     }),
   );
   loads.push(...fedBoardReadings(board, solution, threshold));
@@ -117,7 +119,7 @@ function distancePercent(a: NetworkSolution, b: NetworkSolution): number {
     const w = b.nodeVoltages[k];
     if (v && w) largest = Math.max(largest, abs(sub(v, w)));
   });
-  return (100 * largest) / a.board.nominalLineToNeutralV;
+  return (100 * largest) / judgedNominalOf(a.board).ln;
 }
 
 const asImpedance = (loads: readonly BoardLoad[]): BoardLoad[] => loads.map((l) => ({ ...l, branches: l.branches.map((b) => ({ ...b, zip: { z: 1, i: 0, p: 0 } })) }));

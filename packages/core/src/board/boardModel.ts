@@ -66,9 +66,16 @@ export interface Board {
   readonly hasNeutral: boolean;
   readonly frequencyHz: number;
   readonly sequence: 'ABC' | 'ACB';
+  /** The model's nominal voltages: the source EMF and the loads' ratings are taken at these. */
   readonly nominalLineToNeutralV: number;
   /** Null on a single-phase 2-wire board. */
   readonly nominalLineToLineV: number | null;
+  /**
+   * The system's nominal voltages as the standards name them (230/400 V where the model's are
+   * 230.9/400 V), which limits and "% of nominal" are taken against; absent where they are the
+   * model's (nominalVoltages.ts, judgedNominalOf).
+   */
+  readonly systemNominal?: { readonly lineToNeutralV: number; readonly lineToLineV: number | null };
   /** Source EMF of each phase to the source star point, V, in the order of `phases`. */
   readonly emf: readonly ComplexValue[];
   /** Source impedance per line, ohm. */

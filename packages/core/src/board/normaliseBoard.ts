@@ -7,7 +7,7 @@ import type { BoardBaseSpec, LoadBaseSpec, WindingSpec } from './boardSchema.js'
 import { feederModel } from './feederModel.js';
 import type { Board, BoardLoad, LoadBranch, SourceUnit, Terminal, ZipFractions } from './boardModel.js';
 import { phasesOf, systemHasNeutral, type PhaseId } from './systemTopology.js';
-import { nominalVoltagesOf } from './nominalVoltages.js';
+import { nominalVoltagesOf, systemNominalOf } from './nominalVoltages.js';
 import { resolveConventions } from './conventions/boardConventions.js';
 import { assertNormalisableBoard } from './normalisableSpec.js';
 
@@ -174,13 +174,14 @@ export function boardModelOf(spec: BoardBaseSpec): Board {
   const phases = phasesOf(system);
   const sequence = spec.supply.sequence ?? 'ABC';
   const { ln, ll } = nominalVoltages(spec);
+  const judged = systemNominalOf(spec.supply);
   const angles = balancedAnglesDeg(system, sequence);
   const emf = phases.map((p, k) => {
     const given = spec.supply.emf?.[p];
     return given ? polar(given.V, degToRad(given.angleDeg)) : polar(ln, degToRad(angles[k]!));
   });
   const unequal = unequalSource(spec, phases, ln, ll);
-  const conventions = resolveConventions(spec, { ln, ll });
+  const conventions = resolveConventions(spec, judged);
   const feeder = feederModel(spec.feeder, phases, spec.supply.frequencyHz, conventions.phaseNames);
   const first = feeder.lineImpedances[0]!;
   const unequalLines = feeder.lineImpedances.some((z) => z.re !== first.re || z.im !== first.im);
@@ -193,6 +194,7 @@ export function boardModelOf(spec: BoardBaseSpec): Board {
     sequence,
     nominalLineToNeutralV: ln,
     nominalLineToLineV: ll,
+    ...(judged.ln !== ln || judged.ll !== ll ? { systemNominal: { lineToNeutralV: judged.ln, lineToLineV: judged.ll } } : {}),
     emf,
     sourceImpedance: unequal.sourceImpedances ? mean(unequal.sourceImpedances.filter((_, k) => phases[k] !== unequal.openDeltaCorner)) : sourceImpedance(spec, ln, ll),
     lineImpedance: mean(feeder.lineImpedances),

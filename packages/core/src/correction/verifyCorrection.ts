@@ -27,6 +27,7 @@ import { parseOptions } from '../_internal/zodIssues.js';
 import { balanceWorsening } from './balanceWorsening.js';
 import { overloadsCaused } from './overloadsCaused.js';
 import { assertBoardModel } from '../board/modelGuards.js';
+import { judgedNominalOf } from '../board/nominalVoltages.js';
 
 export interface VerifyCorrectionOptions {
   /** The equipment to add, e.g. `selection.equipment` or `sizing.equipment`. */
@@ -67,7 +68,7 @@ function shortCircuitVA(board: Board): number | null {
 function voltageRise(board: Board, capacitorKvar: number, before: BoardResult, after: BoardResult, limitPercent: number): VoltageRise {
   const ssc = shortCircuitVA(board);
   const estimatePercent = ssc === null ? null : (100 * capacitorKvar * 1000) / ssc;
-  const solvedPercent = Math.max(...after.phases.map((p, k) => (100 * (p.voltage.magnitude - before.phases[k]!.voltage.magnitude)) / board.nominalLineToNeutralV));
+  const solvedPercent = Math.max(...after.phases.map((p, k) => (100 * (p.voltage.magnitude - before.phases[k]!.voltage.magnitude)) / judgedNominalOf(board).ln));
   return {
     capacitorKvar,
     shortCircuitKVA: ssc === null ? null : ssc / 1000,

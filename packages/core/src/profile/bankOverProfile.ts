@@ -15,6 +15,7 @@ import { sizeBankSteps } from './sizeBankSteps.js';
 import type { IntervalFigures } from './solveBatch.js';
 import type { ProfileSummary } from './summariseFigures.js';
 import { hoursBelowTarget, type ProfileBankResult, type ProfileStudyOptions } from './studyProfile.js';
+import { judgedNominalOf } from '../board/nominalVoltages.js';
 
 export interface BankOverProfileInput {
   /** The board the bank is on (its controller measures the board's incomer). */
@@ -111,7 +112,7 @@ export function bankOverProfile(input: BankOverProfileInput, options: Pick<Profi
       operationsPerYearLimit: PROFILE_DEFAULTS.operationsPerYearLimit,
       contactorLifeOperations: PROFILE_DEFAULTS.contactorLifeOperations,
       yearsToContactorLife: busiest > 0 ? PROFILE_DEFAULTS.contactorLifeOperations / busiest : null,
-      voltageRisePercent: (100 * worstRise.value) / board.nominalLineToNeutralV,
+      voltageRisePercent: (100 * worstRise.value) / judgedNominalOf(board).ln,
       voltageRiseAt: label(worstRise.index),
       belowTarget,
       after: input.summarise(run.figures),

@@ -21,6 +21,7 @@ import { summariseFigures, type ProfileSummary, type ResolvedLimits, type Summar
 import { createZoneClock, monthKeyOf } from './zoneClock.js';
 import { PROFILE_CAUTIONS } from './profileWording.js';
 import { assertProfileInput } from '../board/modelGuards.js';
+import { judgedNominalOf } from '../board/nominalVoltages.js';
 
 export interface ProfileStudyInput {
   /** The board as the drivers see it (see planColumns: metered phases added). */
@@ -141,6 +142,7 @@ export interface ProfileStudy {
   readonly after: IntervalFigures | null;
   readonly connectedKvar: Float64Array | null;
   readonly label: (i: number) => string;
+  /** The system's nominal line-to-neutral voltage, which the per-interval percentages are taken against (judgedNominalOf). */
   readonly nominalLineToNeutralV: number;
 }
 
@@ -275,5 +277,5 @@ export function studyProfile(input: ProfileStudyInput, options: ProfileStudyOpti
     bank,
     cautions: PROFILE_CAUTIONS,
   };
-  return { result, utcMs: input.utcMs, before, after, connectedKvar, label, nominalLineToNeutralV: board.nominalLineToNeutralV };
+  return { result, utcMs: input.utcMs, before, after, connectedKvar, label, nominalLineToNeutralV: judgedNominalOf(board).ln };
 }

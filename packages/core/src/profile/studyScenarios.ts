@@ -17,6 +17,7 @@ import { allocateFigures, solveBatch, type IntervalFigures } from './solveBatch.
 import { billingPowerFactor } from './billingPowerFactor.js';
 import { clearRoundOff, conductorFloorA } from './intervalRoundOff.js';
 import { ownEntry } from '../_internal/ownEntry.js';
+import { judgedNominalOf } from '../board/nominalVoltages.js';
 
 export interface ScenarioReading {
   readonly name: string;
@@ -84,7 +85,8 @@ export function scenarioDrivers(loads: readonly Board['loads'][number][], scenar
  * @param powerFloorVA a board power below this is round-off, read as none (no kW, kvar or PF of its own) @defaultValue 0
  */
 export function readBoardScenarios(board: Board, figures: IntervalFigures, scenarios: readonly ScenarioSpec[], hours: readonly number[], powerFloorVA = 0): BoardScenarios {
-  const vPct = 100 / board.nominalLineToNeutralV;
+  const nominal = judgedNominalOf(board);
+  const vPct = 100 / nominal.ln;
   const readings = scenarios.map((s, k): ScenarioReading => {
     let w = 0;
     let q = 0;
@@ -94,7 +96,7 @@ export function readBoardScenarios(board: Board, figures: IntervalFigures, scena
     }
     if (Math.hypot(w, q) < powerFloorVA) w = q = 0;
     // The voltages the board's limits judge: phases where a neutral gives them meaning, and every line pair.
-    const llPct = 100 / (board.nominalLineToLineV ?? board.nominalLineToNeutralV);
+    const llPct = 100 / (nominal.ll ?? nominal.ln);
     const volts = [
       ...(board.hasNeutral || figures.lineToLineV.length === 0 ? figures.phaseV.map((c) => c[k]! * vPct) : []),
       ...figures.lineToLineV.map((c) => c[k]! * llPct),

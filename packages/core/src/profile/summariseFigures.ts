@@ -11,6 +11,7 @@ import { countWhere, maximumOf, minimumOf, percentilesOf, topIndices } from './i
 import { billMonths, type MonthReading } from './monthlyBilling.js';
 import type { TariffSpec } from './profileSpec.js';
 import { billingPowerFactor } from './billingPowerFactor.js';
+import { judgedNominalOf } from '../board/nominalVoltages.js';
 
 export interface ConductorSummary {
   /** A, B, C or N. */
@@ -132,9 +133,10 @@ export function summariseFigures(f: IntervalFigures, ctx: SummaryContext): Profi
   };
   const conductors = board.phases.map((p, k) => conductor(p, f.lineA[k]!, lineRatingOf(board, k)));
   if (board.hasNeutral) conductors.push(conductor('N', f.neutralA, limits.neutralA));
-  const vPct = 100 / board.nominalLineToNeutralV;
+  const nominal = judgedNominalOf(board);
+  const vPct = 100 / nominal.ln;
   const pairs = lineToLinePairs(board.phases.length);
-  const llNominal = board.nominalLineToLineV ?? board.nominalLineToNeutralV;
+  const llNominal = nominal.ll ?? nominal.ln;
   // Each judged voltage as a column in % of its nominal: phase voltages only where a neutral gives them meaning.
   const judged: { name: string; column: Float64Array; toPercent: number }[] = [
     ...(board.hasNeutral || pairs.length === 0 ? board.phases.map((p, k) => ({ name: p as string, column: f.phaseV[k]!, toPercent: vPct })) : []),
@@ -148,7 +150,7 @@ export function summariseFigures(f: IntervalFigures, ctx: SummaryContext): Profi
   let low = 0;
   let high = 0;
   let collapsed = 0;
-  const collapseV = (SUPPLY_LIMITS.collapsedVoltagePercent / 100) * board.nominalLineToNeutralV;
+  const collapseV = (SUPPLY_LIMITS.collapsedVoltagePercent / 100) * nominal.ln;
   for (let i = 0; i < n; i++) {
     let lo = Number.POSITIVE_INFINITY;
     let hi = 0;

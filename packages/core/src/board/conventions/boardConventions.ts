@@ -57,9 +57,10 @@ export function conventionsOf(board: {
   readonly frequencyHz: number;
   readonly nominalLineToNeutralV: number;
   readonly nominalLineToLineV: number | null;
+  readonly systemNominal?: { readonly lineToNeutralV: number; readonly lineToLineV: number | null };
 }): BoardConventions {
   return (
     board.conventions ??
-    resolveConventions({ supply: { system: board.system, frequencyHz: board.frequencyHz, voltage: {} } }, { ln: board.nominalLineToNeutralV, ll: board.nominalLineToLineV })
+    resolveConventions({ supply: { system: board.system, frequencyHz: board.frequencyHz, voltage: {} } }, board.systemNominal ? { ln: board.systemNominal.lineToNeutralV, ll: board.systemNominal.lineToLineV } : { ln: board.nominalLineToNeutralV, ll: board.nominalLineToLineV })
   );
 }

@@ -21,6 +21,7 @@ import { judgedNominals } from '../../analysis/voltageCheck.js';
 import { renderPhasorDiagram } from '../renderPhasorDiagram.js';
 import { renderSequenceDiagram } from '../renderSequenceDiagram.js';
 import type { ReportBlock, ReportSection } from './reportDocument.js';
+import { nominalVoltageWords, sourceVoltageWords } from '../nominalVoltageWords.js';
 
 const SYSTEM_WORDS: Readonly<Record<string, string>> = {
   'three-phase-4wire': 'three-phase 4-wire (lines and neutral)',
@@ -74,7 +75,7 @@ export function systemFacts(result: BoardResult): [string, string][] {
   const b = result.board;
   return [
     ['System', b.withoutNeutral ? `${b.system === 'split-phase' ? 'split-phase, two lines' : 'three-phase 3-wire'}: no neutral at this board (its feeder, or one upstream, has line conductors only)` : (SYSTEM_WORDS[b.system] ?? b.system)],
-    ['Nominal voltage', `${b.nominalLineToLineV !== null ? `${fixed(b.nominalLineToLineV, 0)} V line-to-line, ` : ''}${fixed(b.nominalLineToNeutralV, 1)} V line-to-neutral`],
+    ['Nominal voltage', nominalVoltageWords(b)],
     result.sequences ? ['Frequency and phase sequence', `${b.frequencyHz} Hz, ${labelIn(result.conventions.phaseNames, b.sequence)}`] : ['Frequency', `${b.frequencyHz} Hz`],
   ];
 }
@@ -86,7 +87,7 @@ export function installationSection(spec: BoardBaseSpec, result: BoardResult): R
     ['Board', b.name],
     ...systemFacts(result),
     ['Source', sourceWords(s, result.conventions.phaseNames)],
-    ['Source voltages', s.emf ? 'unbalanced, as entered per phase' : 'balanced at nominal voltage'],
+    ['Source voltages', sourceVoltageWords(b, s.emf !== undefined)],
     ['Feeder, each line', conductorWords(spec.feeder?.line, spec.feeder, result.conventions.phaseNames)],
   ];
   if (result.neutral !== null) items.push(['Feeder, neutral', conductorWords(spec.feeder?.neutral, spec.feeder, result.conventions.phaseNames)]);

@@ -13,6 +13,7 @@ import { labellerOf } from '../../board/conventions/phaseNames.js';
 import { renderOneLineDiagram } from '../renderOneLineDiagram.js';
 import type { ReportBlock, ReportColumn, ReportSection } from './reportDocument.js';
 import { conductorWords, resultBlocks, scheduleTable, sourceWords, systemFacts } from './boardSections.js';
+import { sourceVoltageWords } from '../nominalVoltageWords.js';
 
 const num = (label: string): ReportColumn => ({ label, align: 'right' });
 
@@ -59,7 +60,7 @@ export function installationDescription(spec: InstallationBaseSpec, result: Inst
     ['Installation', result.installation.name],
     ...systemFacts(main),
     ['Source', sourceWords(spec.supply, main.conventions.phaseNames)],
-    ['Source voltages', spec.supply.emf ? 'unbalanced, as entered per phase' : 'balanced at nominal voltage'],
+    ['Source voltages', sourceVoltageWords(main.board, spec.supply.emf !== undefined)],
     ['Boards', `${result.installation.boardCount}, main board ${result.boards[0]!.name}`],
     ['Circuits', `${circuits}`],
   ];

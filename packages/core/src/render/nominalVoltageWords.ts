@@ -1,0 +1,25 @@
+/**
+ * A board's nominal voltages and its source's in words, one wording for the text report,
+ * the HTML report and the installation report.
+ */
+import type { BoardResult } from '../analysis/boardResult.js';
+
+/** A voltage to 0.1 V without a trailing ".0": 230, 230.9, 120. */
+const volts = (v: number) => String(Math.round(v * 10) / 10);
+
+/** "400 V line-to-line, 230 V line-to-neutral", or "230 V" on a single-phase 2-wire board. */
+export function nominalVoltageWords(board: BoardResult['board']): string {
+  return board.nominalLineToLineV !== null ? `${volts(board.nominalLineToLineV)} V line-to-line, ${volts(board.nominalLineToNeutralV)} V line-to-neutral` : `${volts(board.nominalLineToNeutralV)} V`;
+}
+
+/**
+ * What the source holds its terminals at with no load: the nominal voltage, or (where the nominal
+ * pair is not exactly √3 apart) the figure the file gave and the other one it implies.
+ */
+export function sourceVoltageWords(board: BoardResult['board'], unbalancedEmf: boolean): string {
+  if (unbalancedEmf) return 'unbalanced, as entered per phase';
+  const s = board.sourceNominal;
+  if (!s) return 'balanced at nominal voltage';
+  const pair = s.lineToLineV === null ? `${volts(s.lineToNeutralV)} V` : `${volts(s.lineToNeutralV)} V line-to-neutral, ${volts(s.lineToLineV)} V line-to-line`;
+  return `balanced, ${pair} (the nominal pair is not exactly √3 apart; limits are judged at the nominal figures)`;
+}
