@@ -69,3 +69,24 @@ describe('a scenario with nothing on', () => {
     expect(r.scenarios[0]!.pf).toBeCloseTo(0.7, 9);
   });
 });
+
+describe('scenario unbalance on the board region\'s index', () => {
+  // The same board on a North-American 208Y/120 supply: ANSI C84.1 judges the line-to-line deviation from
+  // the average, not |V2|/|V1|, so the scenario column holds that figure (as solve's unbalance reading has it).
+  const na = { ...spec, supply: { ...spec.supply, voltage: '208Y/120', frequencyHz: 60 } };
+  const shiftLoads = [{ ...spec.loads[0], kW: 4.5 }, { ...spec.loads[1], kW: 6 }, spec.loads[2]];
+  it('North America: the line-to-line deviation; IEC: |V2|/|V1|, each equal to the solve of the same loads', () => {
+    const parsedNa = parseBoard(na);
+    const naResult = studyScenarios(normaliseBoard(parsedNa), parsedNa.profile!);
+    const naSolve = solveBoard({ ...na, loads: shiftLoads });
+    expect(naResult.unbalance.index).toBe('line-deviation');
+    expectClose(naResult.scenarios[0]!.unbalancePercent!, naSolve.unbalance!.lineVoltageRatePercent, { rel: 1e-9, abs: 1e-12 }, 'line deviation');
+    // The two indices differ here, so the test tells them apart.
+    expect(Math.abs(naSolve.unbalance!.lineVoltageRatePercent - naSolve.unbalance!.voltageFactorPercent)).toBeGreaterThan(1e-4); // far above the 1e-9 the figures agree to
+    const parsedIec = parseBoard(spec);
+    const iec = studyScenarios(normaliseBoard(parsedIec), parsedIec.profile!);
+    const iecSolve = solveBoard({ ...spec, loads: shiftLoads });
+    expect(iec.unbalance.index).toBe('negative-sequence');
+    expectClose(iec.scenarios[0]!.unbalancePercent!, iecSolve.unbalance!.voltageFactorPercent, { rel: 1e-9, abs: 1e-12 }, '|V2|/|V1|');
+  });
+});

@@ -93,7 +93,7 @@ export function renderInstallationProfileReport(r: InstallationProfileResult, cu
     section(`Calendar months at the supply (${main.board})`),
     monthTable(main.before, main.after, currency),
     section(main.before.worstByNeutral.length ? `Intervals with the highest neutral current at ${main.board}` : `Intervals with the highest line current at ${main.board}`),
-    worstTable(main.before),
+    worstTable(main.before, main.limits.unbalance),
   ];
   if (r.bank && bankBoard) {
     parts.push(section(`Automatic bank on ${r.bank.board} over the profile`), bankLines({ bank: r.bank, before: bankBoard.before }));

@@ -1,5 +1,5 @@
 /** ProfileResult → the text report of `trivar profile`. */
-import { billingPowerFactorText, contactorLifeWords, labellerOf, type PhaseLabeller, type ProfileBankResult, type ProfileResult, type ProfileSummary, type ScenarioResult, type BoardScenarios } from '@trivar/core';
+import { billingPowerFactorText, contactorLifeWords, labellerOf, type PhaseLabeller, type ProfileBankResult, type ProfileResult, type ProfileSummary, type ScenarioResult, type BoardScenarios, type VoltageUnbalanceLimit } from '@trivar/core';
 import { fixed, renderTable, section } from './textTable.js';
 import { wrapText } from './wrapText.js';
 
@@ -171,13 +171,17 @@ function reconnectBasis(set: ProfileBankResult['settings']): string {
   return ` (discharge time ${set.dischargeSeconds} s, ${set.dischargeRule})`;
 }
 
-export function worstTable(s: ProfileSummary): string {
+/** @param unbalance the index the board's limits judge (ResolvedLimits.unbalance), named under the table */
+export function worstTable(s: ProfileSummary, unbalance: VoltageUnbalanceLimit): string {
   const worst = s.worstByNeutral.length ? s.worstByNeutral : s.worstByLine;
   const rows = worst.map((w) => [w.at, fixed(w.maxLineA, 1), fixed(w.neutralA, 1), w.unbalancePercent === null ? '-' : fixed(w.unbalancePercent, 2)]);
   const table = renderTable([{ header: 'interval', align: 'left' }, { header: 'highest line A' }, { header: 'neutral A' }, { header: 'unbalance %' }], rows);
-  // Sequence components need three phases: on a split-phase or single-phase board there is no |V2|/|V1| (solve leaves it blank too).
-  return worst.some((w) => w.unbalancePercent === null) ? `${table}\n  (unbalance %: defined for three phases only; - on this board)` : table;
+  // Both indices need three phases: on a split-phase or single-phase board there is none (solve leaves it blank too).
+  return worst.some((w) => w.unbalancePercent === null) ? `${table}\n  (unbalance %: defined for three phases only; - on this board)` : `${table}\n${unbalanceIndexNote(unbalance)}`;
 }
+
+/** Which voltage unbalance figure an "unbalance %" column holds: the board region's (unbalanceLimits.ts). */
+const unbalanceIndexNote = (u: VoltageUnbalanceLimit): string => `  (unbalance %: ${u.definition ?? u.name})`;
 
 /** @param label the board file's phase labels (`labellerOf(conventionsOf(board).phaseNames)`) */
 export function renderProfileReport(r: ProfileResult, currency: string, label: PhaseLabeller = labellerOf(r.phaseNames)): string {
@@ -195,7 +199,7 @@ export function renderProfileReport(r: ProfileResult, currency: string, label: P
     section('Calendar months'),
     monthTable(s, r.bank?.after ?? null, currency),
     section(s.worstByNeutral.length ? 'Intervals with the highest neutral current' : 'Intervals with the highest line current'),
-    worstTable(s),
+    worstTable(s, r.limits.unbalance),
   ];
   if (r.bank) parts.push(section('Automatic bank over the profile'), bankLines(r));
   parts.push(section('Cautions'), ...r.cautions.map((c) => `  - ${c}`));
@@ -232,7 +236,7 @@ export function scenarioTable(r: BoardScenarios, label: PhaseLabeller = LETTERED
       fixed(s.kvar, 1),
       s.pf === null ? '-' : fixed(s.pf, 3),
     ]),
-  );
+  ) + (r.scenarios.some((s) => s.unbalancePercent !== null) ? `\n${unbalanceIndexNote(r.unbalance)}` : '');
 }
 
 /** The year weighed by the scenarios' hours, in one line. */

@@ -18,6 +18,7 @@ import { billingPowerFactor } from './billingPowerFactor.js';
 import { clearRoundOff, conductorFloorA } from './intervalRoundOff.js';
 import { ownEntry } from '../_internal/ownEntry.js';
 import { judgedNominalOf } from '../board/nominalVoltages.js';
+import { VOLTAGE_UNBALANCE_LIMITS, type VoltageUnbalanceLimit } from '../board/conventions/unbalanceLimits.js';
 
 export interface ScenarioReading {
   readonly name: string;
@@ -27,6 +28,7 @@ export interface ScenarioReading {
   /** The lowest and highest voltage the limits judge (line-to-neutral where there is a neutral, line-to-line), % of nominal. */
   readonly lowestVoltagePercent: number;
   readonly highestVoltagePercent: number;
+  /** Voltage unbalance on the board region's index (BoardScenarios.unbalance); null on a board of fewer than three phases. */
   readonly unbalancePercent: number | null;
   readonly kW: number;
   readonly kvar: number;
@@ -44,6 +46,8 @@ export interface BoardScenarios {
   /** Each line's rating, A, in the order of the board's phases (null: none given). */
   readonly lineRatingsA: readonly (number | null)[];
   readonly neutralRatingA: number | null;
+  /** The voltage unbalance index the board's region judges (unbalanceLimits.ts): |V2|/|V1|, or the line-to-line deviation. */
+  readonly unbalance: VoltageUnbalanceLimit;
 }
 
 export interface ScenarioResult extends BoardScenarios {
@@ -87,6 +91,8 @@ export function scenarioDrivers(loads: readonly Board['loads'][number][], scenar
 export function readBoardScenarios(board: Board, figures: IntervalFigures, scenarios: readonly ScenarioSpec[], hours: readonly number[], powerFloorVA = 0): BoardScenarios {
   const nominal = judgedNominalOf(board);
   const vPct = 100 / nominal.ln;
+  const unbalance = VOLTAGE_UNBALANCE_LIMITS[conventionsOf(board).region];
+  const unbalanceColumn = unbalance.index === 'negative-sequence' ? figures.unbalancePercent : figures.lineDeviationPercent;
   const readings = scenarios.map((s, k): ScenarioReading => {
     let w = 0;
     let q = 0;
@@ -108,7 +114,7 @@ export function readBoardScenarios(board: Board, figures: IntervalFigures, scena
       neutralA: board.hasNeutral ? figures.neutralA[k]! : null,
       lowestVoltagePercent: Math.min(...volts),
       highestVoltagePercent: Math.max(...volts),
-      unbalancePercent: board.phases.length === 3 ? figures.unbalancePercent[k]! : null,
+      unbalancePercent: board.phases.length === 3 ? unbalanceColumn[k]! : null,
       kW: w / 1000,
       kvar: q / 1000,
       pf: Math.hypot(w, q) === 0 ? null : Math.min(1, Math.abs(w) / Math.hypot(w, q)),
@@ -123,6 +129,7 @@ export function readBoardScenarios(board: Board, figures: IntervalFigures, scena
     billingPf: billingPowerFactor(kWhImport, kvarhLagging),
     lineRatingsA: board.phases.map((_, k) => lineRatingOf(board, k)),
     neutralRatingA: board.neutralRatingA,
+    unbalance,
   };
 }
 
