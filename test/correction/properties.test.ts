@@ -28,7 +28,8 @@ import { laggingBoardArb, runs } from './support/arbitraries.js';
 import { makeBoard } from './support/boards.js';
 import { expectPlainData } from './support/plainData.js';
 
-const SLACK = 1e-9;
+/** Round-off allowed on a bound, of the line's kVA: the re-solve lands a figure on its bound to about 1e-9 (a line held at unity was seen at −1.3e-9·S). */
+const SLACK = 1e-8;
 const targetArb = fc.record({
   pf: fc.double({ min: 0.85, max: 0.99, noNaN: true }),
   definition: fc.constantFrom<TargetDefinition>('per-line', 'effective', 'vector', 'positive-sequence'),
