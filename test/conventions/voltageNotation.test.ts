@@ -87,6 +87,16 @@ describe('notation in a board file', () => {
     expect(solveBoard(board('120/240')).board.nominalLineToNeutralV).toBe(120);
   });
 
+  it('a `written` key in the object form (trivar sets it) says to write the notation as the voltage itself', () => {
+    const result = validateBoard(board({ written: '208Y/120' }, 'three-phase-4wire'));
+    expect(result.ok).toBe(false);
+    if (result.ok) return;
+    const issue = result.issues.find((i) => i.path === 'supply.voltage.written')!;
+    expect(issue.message).toContain('voltage: "208Y/120"');
+    expect(issue.message).toContain('written with no figures beside it');
+    expect(issue.message).not.toContain('- V');
+  });
+
   const invalid: [string, unknown, string | undefined, string, RegExp][] = [
     ['a split-phase pair on a star system', '400/200', 'three-phase-4wire', 'bad_voltage_notation', /√3 \(1\.732\) for a three-phase star/],
     ['a star pair on a split-phase system', '230/400', 'split-phase', 'bad_voltage_notation', /ratio of 2 for a split-phase/],

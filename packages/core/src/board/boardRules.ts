@@ -32,7 +32,16 @@ function ruleVoltageGiven(board: BoardBaseSpec): InputIssue[] {
     if (!read.ok) return [inputIssue('bad_voltage_notation', path, read.problem, voltage.written)];
     const { lineToLineV, lineToNeutralV } = read.notation;
     if (voltage.lineToLine !== lineToLineV || voltage.lineToNeutral !== lineToNeutralV)
-      return [inputIssue('conflict', `${path}.written`, `the figures of the notation "${voltage.written}" (${lineToLineV} V and ${lineToNeutralV} V), or no written`, `${voltage.lineToLine ?? '-'} V and ${voltage.lineToNeutral ?? '-'} V`)];
+      return [
+        inputIssue(
+          'conflict',
+          `${path}.written`,
+          `the notation written as the voltage itself (voltage: "${voltage.written}"), or lineToLine ${lineToLineV} and lineToNeutral ${lineToNeutralV} beside it`,
+          voltage.lineToLine === undefined && voltage.lineToNeutral === undefined
+            ? 'written with no figures beside it'
+            : `lineToLine ${voltage.lineToLine ?? 'not given'}, lineToNeutral ${voltage.lineToNeutral ?? 'not given'}`,
+        ),
+      ];
     return [];
   }
   const { lineToLine, lineToNeutral } = voltage;
