@@ -48,10 +48,10 @@ describe('banks as bought and installed', () => {
     expect(delta.selection!.steps.every((s) => s.unit.ratedV === 600)).toBe(true);
     const star = correctBoard(plant600, { arrangement: 'star-bank' });
     expect(star.status).toBe('no-suitable-units');
-    expect(star.reasons[0]).toMatch(/no unit in the built-in typical North-American catalogue \(60 Hz\) fits A-N, B-N, C-N: a unit there must be rated at least 346\.4 V/);
-    // The way out named with its figure: the nearest rating's share at the nominal 346.4 V across it, (V/480)^2.
+    expect(star.reasons[0]).toMatch(/no unit in the built-in typical North-American catalogue \(60 Hz\) fits A-N, B-N, C-N: a unit there must be rated at least 347\.0 V/);
+    // The way out named with its figure: the nearest rating's share at the nominal 347 V across it (IEC 60038 347/600), (V/480)^2.
     const nominal = star.selection!.unbuildable!.floorV;
-    expect(nominal).toBeCloseTo(600 / Math.sqrt(3), 9);
+    expect(nominal).toBe(347);
     const share = 100 * (nominal / 480) ** 2;
     expect(star.reasons[0]).toContain(`the nearest, 480 V, delivers ${share.toFixed(1)} % there (a deliveryFloorPercent of ${Math.floor(share)} in the correction accepts it)`);
     const accepted = correctBoard(plant600, { arrangement: 'star-bank', deliveryFloorPercent: Math.floor(share) });

@@ -16,8 +16,8 @@ describe('floating star bank', () => {
     expect(report.selection).not.toBeNull();
     expect(report.selection!.steps.every((s) => s.branches.length === 3 && s.unit.kind === 'single-phase')).toBe(true);
     for (const s of report.selection!.selections) {
-      // 230.9 V × 1.10 = 254 V: the typical IEC single-phase 280 V unit (67 % output, above the 65 % floor).
-      expect(s.requiredRatedV).toBeCloseTo((1.1 * 400) / Math.sqrt(3), 9);
+      // The 230 V nominal (IEC 60038 230/400) × 1.10 = 253 V: the typical IEC single-phase 280 V unit (67 % output, above the 65 % floor).
+      expect(s.requiredRatedV).toBeCloseTo(1.1 * 230, 9);
     }
     expect(report.selection!.steps[0]!.unit.ratedV).toBe(280);
     // Equal branches on a balanced board: the star point stays at the centroid, no shift warning.

@@ -1,5 +1,5 @@
 /** InstallationResult → the text report of `trivar solve` on an installation: a summary per board and per feeder. */
-import { BANKS_IN_SERVICE_BASIS, bandWords, bankInServiceWords, labelIn, unbalanceFigure, VOLTAGE_UNBALANCE_LIMITS, type InstallationResult } from '@trivar/core';
+import { BANKS_IN_SERVICE_BASIS, bandWords, sourceHeldLine, bankInServiceWords, labelIn, unbalanceFigure, VOLTAGE_UNBALANCE_LIMITS, type InstallationResult } from '@trivar/core';
 import { fixed, renderTable, section } from './textTable.js';
 import { treeName } from './boardTree.js';
 import { renderSolveReport } from './solveReport.js';
@@ -169,7 +169,11 @@ export function renderInstallationReport(r: InstallationResult, options: Install
   const cautions = [...new Set(r.boards.flatMap((b) => b.result.cautions))];
   const ideal = first.idealSource === true;
   const parts = [
-    [r.installation.name, `${SYSTEM_WORDS[r.installation.system] ?? r.installation.system} · ${volts} · ${first.frequencyHz} Hz · ${r.installation.boardCount} board${r.installation.boardCount === 1 ? '' : 's'}`].join('\n'),
+    [
+      r.installation.name,
+      `${SYSTEM_WORDS[r.installation.system] ?? r.installation.system} · ${volts} · ${first.frequencyHz} Hz · ${r.installation.boardCount} board${r.installation.boardCount === 1 ? '' : 's'}`,
+      ...(sourceHeldLine(first) ? [wrapText(sourceHeldLine(first)!, '', '  ')] : []),
+    ].join('\n'),
     ...collapseBlock(r),
     section('Boards') + boardTable(r) + `\n${note(`min and max %nom: the lowest and highest voltage the limits judge (line-to-neutral, line-to-line, at the loads); ${unbalanceWords(r)}own: this board's circuits; fed: what enters its feeder at the sending end, the feeder's loss and the boards beyond it included (main board: what the source EMFs deliver).`)}`,
     section('Feeders') +

@@ -1,5 +1,5 @@
 /** BoardResult → the human-readable report of `trivar solve`. */
-import { bandVoltsWords, nominalVoltageWords, bandWords, judgedNominals, labelIn, regionWords, signedPfText, assumedPfNote, sourceUnitsWords, type BoardResult } from '@trivar/core';
+import { bandVoltsWords, nominalVoltageWords, sourceHeldLine, bandWords, judgedNominals, labelIn, regionWords, signedPfText, assumedPfNote, sourceUnitsWords, type BoardResult } from '@trivar/core';
 import { fixed, renderTable, renderTableWithin, section } from './textTable.js';
 import { REPORT_WIDTH, wrapText } from './wrapText.js';
 import { exportSentence, isExport, pfCell, varWords } from './powerFlowWords.js';
@@ -48,9 +48,11 @@ export function headerLines(r: BoardResult): string[] {
   const label = labeller(r);
   const volts = nominalVoltageWords(b);
   const seq = b.system.startsWith('three') ? ` · sequence ${label(b.sequence)}` : '';
+  const held = sourceHeldLine(b);
   return [
     wrapText(b.name, ''),
     `${systemWords(b)} · ${volts} · ${b.frequencyHz} Hz${seq}${b.neutralOpen ? ' · NEUTRAL OPEN' : ''}`,
+    ...(held ? [wrapText(held, '', '  ')] : []),
   ];
 }
 

@@ -148,10 +148,18 @@ function readSequences(solution: NetworkSolution, phaseVoltages: readonly Comple
 
 /** Loads whose current/power part runs below the solver's low-voltage threshold. */
 function loadsBelowThreshold(solution: NetworkSolution) {
-  return solution.board.loads.flatMap((load, li) => {
+  const board = solution.board;
+  return board.loads.flatMap((load, li) => {
     const states = solution.branches[li]!;
-    const pu = Math.min(...load.branches.map((b, bi) => (b.zip.z === 1 || !states[bi]!.energised ? Infinity : abs(states[bi]!.voltage) / b.vNominal)));
-    return pu < solution.lowVoltageThreshold ? [{ name: load.name, pu, threshold: solution.lowVoltageThreshold }] : [];
+    let pu = Infinity;
+    let ratingV = 0;
+    load.branches.forEach((b, bi) => {
+      const x = b.zip.z === 1 || !states[bi]!.energised ? Infinity : abs(states[bi]!.voltage) / b.vNominal;
+      if (x < pu) [pu, ratingV] = [x, b.vNominal];
+    });
+    if (!(pu < solution.lowVoltageThreshold)) return [];
+    // Where the rating is taken at another voltage than the nominal the tables print against (a 400 V source's 230.9 V), the words name it.
+    return [{ name: load.name, pu, threshold: solution.lowVoltageThreshold, ...(board.systemNominal ? { ratingV } : {}) }];
   });
 }
 

@@ -44,7 +44,7 @@ const amps = (x: number) => (x === 0 || x >= 0.05 ? x.toFixed(1) : x.toPrecision
 
 export function boardWarnings(input: {
   /** Loads whose current/power part fell below the solver's low-voltage threshold: name and lowest per-unit voltage. */
-  readonly belowThreshold: readonly { readonly name: string; readonly pu: number; readonly threshold: number }[];
+  readonly belowThreshold: readonly { readonly name: string; readonly pu: number; readonly threshold: number; readonly ratingV?: number }[];
   readonly phases: readonly PhaseReading[];
   readonly neutral: NeutralReading | null;
   readonly unbalance: UnbalanceReading | null;
@@ -235,7 +235,7 @@ export function boardWarnings(input: {
   for (const b of input.belowThreshold)
     out.push({
       code: 'load-below-model-threshold',
-      message: `load "${b.name}" sees ${fmt(b.pu * 100)} % of its nominal voltage, below the ${fmt(b.threshold * 100, 0)} % at which its constant-current/constant-power part is taken as an impedance: it draws less than its rating here, and a real device may stall or trip`,
+      message: `load "${b.name}" sees ${fmt(b.pu * 100)} % of ${b.ratingV === undefined ? 'its nominal voltage' : `the ${fmt(b.ratingV)} V its rating is taken at`}, below the ${fmt(b.threshold * 100, 0)} % at which its constant-current/constant-power part is taken as an impedance: it draws less than its rating here, and a real device may stall or trip`,
       value: b.pu * 100,
       threshold: b.threshold * 100,
     });

@@ -88,7 +88,7 @@ export function judgeOperatingPoint(
   solution: NetworkSolution,
   phases: readonly PhaseReading[],
   lineToLine: readonly LineToLineReading[],
-  belowThreshold: readonly { readonly name: string; readonly pu: number }[],
+  belowThreshold: readonly { readonly name: string; readonly pu: number; readonly ratingV?: number }[],
 ): OperatingPoint {
   const { board } = solution;
   const findings: string[] = [];
@@ -103,10 +103,11 @@ export function judgeOperatingPoint(
   if (low.length)
     findings.push(`the board voltage has collapsed to ${low.map((b) => `${b.label} ${b.percent.toFixed(1)} %`).join(', ')} of nominal (below ${limit} %)`);
   if (!board.neutralOpen && belowThreshold.length) {
-    const named = belowThreshold.slice(0, 3).map((b) => `"${b.name}" at ${(b.pu * 100).toFixed(1)} %`);
+    // Each at its % of its nominal voltage, or of the voltage its rating is taken at where that is not the nominal the tables print against.
+    const named = belowThreshold.slice(0, 3).map((b) => `"${b.name}" at ${(b.pu * 100).toFixed(1)} % of ${b.ratingV === undefined ? 'its nominal voltage' : `the ${b.ratingV.toFixed(1)} V its rating is taken at`}`);
     const more = belowThreshold.length > 3 ? ` and ${belowThreshold.length - 3} more` : '';
     findings.push(
-      `the supply cannot deliver the rated power of ${named.join(', ')}${more} of its nominal voltage: below ${(solution.lowVoltageThreshold * 100).toFixed(0)} % a constant-power or constant-current load is taken as an impedance, so the figures describe a state the real loads would not settle in`,
+      `the supply cannot deliver the rated power of ${named.join(', ')}${more}: below ${(solution.lowVoltageThreshold * 100).toFixed(0)} % a constant-power or constant-current load is taken as an impedance, so the figures describe a state the real loads would not settle in`,
     );
   }
   return { collapsed: findings.length > 0, findings };

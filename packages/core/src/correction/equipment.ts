@@ -8,6 +8,7 @@ import type { Board, BoardLoad, PhaseId, Terminal } from '../board/boardModel.js
 import type { ConnectionSpec } from '../board/boardSchema.js';
 import { labelIn, type PhaseNaming } from '../board/conventions/phaseNames.js';
 import { assertBoardModel } from '../board/modelGuards.js';
+import { judgedNominalOf } from '../board/nominalVoltages.js';
 
 /** Where a branch ends: a phase, the neutral bar, or the bank's own floating star point. */
 export type EquipmentTerminal = PhaseId | 'N' | 'star';
@@ -20,6 +21,12 @@ export interface BranchSlot {
   readonly to: EquipmentTerminal;
   /** Nominal voltage across the element, V (line-to-neutral for star, line-to-line for delta). */
   readonly vNominal: number;
+  /**
+   * The system's nominal voltage across the element where it is not `vNominal` (277 V on a 480Y/277 board
+   * whose model holds 480/√3 = 277.1 V): a unit's rating margin and delivery floor are judged against it,
+   * as units are sold for the system's voltage (nominalVoltages.ts).
+   */
+  readonly ratedV?: number;
 }
 
 export interface EquipmentBranch extends BranchSlot {
@@ -38,12 +45,21 @@ export interface EquipmentGroup {
 /** One element per phase, to the neutral bar or to a floating star point. */
 export function starSlots(board: Board, starPoint: 'neutral' | 'floating'): BranchSlot[] {
   const to: EquipmentTerminal = starPoint === 'neutral' ? 'N' : 'star';
-  return board.phases.map((p) => ({ branch: `${p}-${to === 'N' ? 'N' : 'star'}`, from: p, to, vNominal: board.nominalLineToNeutralV }));
+  const rated = judgedNominalOf(board).ln;
+  return board.phases.map((p) => ({
+    branch: `${p}-${to === 'N' ? 'N' : 'star'}`,
+    from: p,
+    to,
+    vNominal: board.nominalLineToNeutralV,
+    ...(rated !== board.nominalLineToNeutralV ? { ratedV: rated } : {}),
+  }));
 }
 
 /** One element per line pair: A-B, B-C, C-A on a three-phase board; the one line-to-line capacitor A-B on a split-phase board. */
 export function deltaSlots(board: Board): BranchSlot[] {
   const ll = board.nominalLineToLineV ?? board.nominalLineToNeutralV;
+  const judged = judgedNominalOf(board);
+  const rated = judged.ll ?? judged.ln;
   const pairs: [PhaseId, PhaseId][] =
     board.phases.length === 2
       ? [['A', 'B']]
@@ -52,7 +68,7 @@ export function deltaSlots(board: Board): BranchSlot[] {
           ['B', 'C'],
           ['C', 'A'],
         ];
-  return pairs.map(([from, to]) => ({ branch: `${from}-${to}`, from, to, vNominal: ll }));
+  return pairs.map(([from, to]) => ({ branch: `${from}-${to}`, from, to, vNominal: ll, ...(rated !== ll ? { ratedV: rated } : {}) }));
 }
 
 /** Susceptance of an element that gives `kvar` at voltage `v` (+ capacitive). */

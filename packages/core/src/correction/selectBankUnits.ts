@@ -148,6 +148,8 @@ export function selectBankUnits(sized: SizedEquipment, options?: SelectBankUnits
 
   // Per branch: the window and the voltage rule.
   const slots = sized.equipment.flatMap((g) => g.branches);
+  // Units are rated for the system's voltage: 277 V on a 480Y/277 board, though its model holds 277.1 V.
+  const ratedAt = (slot: { vNominal: number; ratedV?: number }) => slot.ratedV ?? slot.vNominal;
   // Beside reactors kept at their continuous value a capacitor may not grow past its requirement (the
   // balance would tip and lines lead); beside reactors sized again, and elsewhere, a quarter more is allowed.
   const headroom = sized.branches.some((b) => b.element === 'reactor') && opts.besideReactors !== 'up' ? 1 : NO_LIMIT_HEADROOM;
@@ -168,7 +170,7 @@ export function selectBankUnits(sized: SizedEquipment, options?: SelectBankUnits
     const slot = slots[i]!;
     const light = opts.lightLoad?.branches[i];
     const highestVoltageV = Math.max(b.appliedV, light?.appliedV ?? 0);
-    const requiredRatedV = Math.max((1 + margin) * slot.vNominal, highestVoltageV / limitV);
+    const requiredRatedV = Math.max((1 + margin) * ratedAt(slot), highestVoltageV / limitV);
     const capacitor = b.element === 'capacitor';
     const requiredF = capacitor ? b.susceptanceS / omega : 0;
     const minF = requiredF / (1 - minus);
@@ -183,7 +185,7 @@ export function selectBankUnits(sized: SizedEquipment, options?: SelectBankUnits
     // Where the delivery floor is judged: the nominal voltage across the unit, as the rating is chosen for
     // the system (a board a few per cent low would otherwise refuse the usual rating, 280 V units on 230 V,
     // for a sag); on a floating star, the solved voltage, as its star point moves with the bank itself.
-    const floorV = slot.to === 'star' ? b.appliedV : slot.vNominal;
+    const floorV = slot.to === 'star' ? b.appliedV : ratedAt(slot);
     return { b, slot, highestVoltageV, requiredRatedV, need, capacitor, floorV };
   });
 
@@ -303,7 +305,7 @@ export function selectBankUnits(sized: SizedEquipment, options?: SelectBankUnits
     const three = indices.length === 3;
     const perBranchF = count * c.elementF;
     const kvarAt = (v: (i: number) => number) => indices.reduce((s, i) => s + (perBranchF * omega * v(i) ** 2) / 1000, 0);
-    const kvarAtNominalV = kvarAt((i) => branchInfo[i]!.slot.vNominal);
+    const kvarAtNominalV = kvarAt((i) => ratedAt(branchInfo[i]!.slot));
     const slot = branchInfo[indices[0]!]!.slot;
     const lineToLine = slot.to === 'N' || slot.to === 'star' ? slot.vNominal * Math.sqrt(3) : slot.vNominal;
     const kind = three ? 'three-phase' : 'single-phase';
@@ -391,7 +393,7 @@ export function selectBankUnits(sized: SizedEquipment, options?: SelectBankUnits
       maximumCapacitanceUF: need.maxF === null ? null : need.maxF * 1e6,
       fixedCapacitanceUF: fixedF[i]! * 1e6,
       designCapacitanceUF: design * 1e6,
-      nominalV: slot.vNominal,
+      nominalV: ratedAt(slot),
       highestVoltageV,
       requiredRatedV,
       designKvarAtAppliedV: reactor ? b.kvarAtAppliedV : (design * omega * b.appliedV ** 2) / 1000,

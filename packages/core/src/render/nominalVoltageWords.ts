@@ -20,6 +20,16 @@ export function sourceVoltageWords(board: BoardResult['board'], unbalancedEmf: b
   if (unbalancedEmf) return 'unbalanced, as entered per phase';
   const s = board.sourceNominal;
   if (!s) return 'balanced at nominal voltage';
-  const pair = s.lineToLineV === null ? `${volts(s.lineToNeutralV)} V` : `${volts(s.lineToNeutralV)} V line-to-neutral, ${volts(s.lineToLineV)} V line-to-line`;
-  return `balanced, ${pair} (the nominal pair is not exactly √3 apart; limits are judged at the nominal figures)`;
+  return `balanced, ${heldWords(s)} (the figures given, which loads are rated at; limits are judged at the nominal pair, not exactly √3 apart)`;
 }
+
+/** A text report's line under its header where the source is not exactly the nominal pair; null where it is. */
+export function sourceHeldLine(board: BoardResult['board']): string | null {
+  const s = board.sourceNominal;
+  return s ? `source holds ${heldWords(s)} as given, and loads are rated there; limits are judged at the nominal ${nominalPairWords(board)}` : null;
+}
+
+const heldWords = (s: NonNullable<BoardResult['board']['sourceNominal']>) =>
+  s.lineToLineV === null ? `${volts(s.lineToNeutralV)} V` : `${volts(s.lineToNeutralV)} V line-to-neutral, ${volts(s.lineToLineV)} V line-to-line`;
+
+const nominalPairWords = (b: BoardResult['board']) => (b.nominalLineToLineV === null ? `${volts(b.nominalLineToNeutralV)} V` : `${volts(b.nominalLineToNeutralV)}/${volts(b.nominalLineToLineV)} V`);
