@@ -5,7 +5,15 @@
  */
 import { describe, expect, it } from 'vitest';
 import {
+  checkBalance,
+  checkTarget,
+  collapseError,
   conductorResistance,
+  judgedNominals,
+  normaliseBoard,
+  parseBoard,
+  resolveTarget,
+  solveBoardModel,
   InputError,
   judgeVoltage,
   labelIn,
@@ -58,6 +66,12 @@ describe('sequenceComponents', () => {
   it('refuses two values, which used to throw a TypeError', () => {
     expect(refusal(() => sequenceComponents([{ re: 1, im: 0 }, { re: 1, im: 0 }] as never)).path).toBe('x');
     expect(refusal(() => sequenceComponents([{ re: 1, im: 0 }, { re: 1, im: 0 }, { re: 1, im: 0 }], 'BCA' as never)).path).toBe('sequence');
+  });
+
+  it('refuses a NaN or infinite part, naming it (NaN used to come out in every component)', () => {
+    const one = { re: 1, im: 0 };
+    expect(refusal(() => sequenceComponents([{ re: Number.NaN, im: 0 }, one, one]))).toEqual({ path: 'x[0].re', message: 'x[0].re: expected a finite real part (received NaN)' });
+    expect(refusal(() => sequenceComponents([one, one, { re: 0, im: Number.NEGATIVE_INFINITY }])).path).toBe('x[2].im');
   });
 
   it('a balanced ABC set of 1 ∠0°, 1 ∠−120°, 1 ∠120° is all positive sequence', () => {
@@ -119,5 +133,90 @@ describe('labelIn', () => {
   it('spells known terms in L1/L2/L3 and leaves any other text as it is, an inherited key included', () => {
     expect(labelIn('L1/L2/L3', 'A-N')).toBe('L1-N');
     expect(labelIn('L1/L2/L3', 'constructor')).toBe('constructor');
+  });
+});
+
+// A workshop sub-board of my own: a 6 kW A-N heater and a 4 kW, pf 0.6 lagging B-N compressor on a stiff 400/230 V supply.
+const workshop = normaliseBoard(
+  parseBoard({
+    name: 'workshop',
+    supply: { system: 'three-phase-4wire', voltage: { lineToLine: 400 }, frequencyHz: 50 },
+    loads: [
+      { name: 'heater', connection: 'A-N', kW: 6, pf: 1 },
+      { name: 'compressor', connection: 'B-N', kW: 4, pf: 0.6 },
+    ],
+  }),
+);
+const solved = solveBoardModel(workshop);
+
+describe('checkTarget', () => {
+  const target = resolveTarget({ pf: 0.95 }, workshop);
+
+  it('refuses a target with a NaN PF (it judged against NaN) and per-line minimums that are not one per line (the missing lines went unjudged)', () => {
+    expect(refusal(() => checkTarget(solved, { ...target, pf: Number.NaN }))).toEqual({ path: 'target.pf', message: 'target.pf: expected a power factor above 0 and at most 1 (received NaN)' });
+    expect(refusal(() => checkTarget(solved, { ...target, lines: [] })).message).toBe('target.lines: expected one { phase, minPf } per line, in the order of result.phases (A, B, C) (received a list of 0)');
+    expect(refusal(() => checkTarget(solved, { ...target, lines: target.lines.map((l, k) => (k === 1 ? { ...l, minPf: 1.2 } : l)) })).path).toBe('target.lines[1].minPf');
+    expect(refusal(() => checkTarget(solved, { ...target, definition: 'average' as never })).path).toBe('target.definition');
+  });
+
+  it('refuses what is not a solved board (a TypeError before) and a board before with other lines', () => {
+    expect(refusal(() => checkTarget(null as never, target)).message).toBe('result: expected a solved board from solveBoard(...) or solveBoardModel(...) (received null)');
+    expect(refusal(() => checkTarget(workshop as never, target)).message).toContain('(received a normalised board, not solved)');
+    expect(refusal(() => checkTarget(solved, null as never)).path).toBe('target');
+    expect(refusal(() => checkTarget(solved, target, { phases: solved.phases.slice(0, 2) })).path).toBe('before.phases');
+  });
+
+  it('judges a good target as before: line B at pf 0.6 is below 0.95, lines A (pf 1) and C (idle) pass', () => {
+    const check = checkTarget(solved, target, solved);
+    expect(check.met).toBe(false);
+    expect(check.lines.map((l) => l.meetsMinimum)).toEqual([true, false, true]);
+    expect(check.lines[2]!.loaded).toBe(false);
+  });
+});
+
+describe('checkBalance', () => {
+  it('refuses a NaN limit, which read every board as balanced, and a normalised board, which read as 0 % unbalance', () => {
+    expect(refusal(() => checkBalance(solved, { maxNegativeSequencePercent: Number.NaN, maxNeutralPercent: 20 }))).toEqual({
+      path: 'target.maxNegativeSequencePercent',
+      message: 'target.maxNegativeSequencePercent: expected a percentage from 0 to 100 (received NaN)',
+    });
+    expect(refusal(() => checkBalance(solved, { maxNegativeSequencePercent: 10, maxNeutralPercent: -1 })).path).toBe('target.maxNeutralPercent');
+    expect(refusal(() => checkBalance(workshop as never, { maxNegativeSequencePercent: 10, maxNeutralPercent: 20 })).path).toBe('result');
+  });
+
+  it('judges a good target: two loads on two lines leave |I2|/|I1| well above 10 %', () => {
+    const check = checkBalance(solved, { maxNegativeSequencePercent: 10, maxNeutralPercent: null });
+    expect(check.met).toBe(false);
+    // Stiff supply: I_A = 6000/230 ∠0, I_B = (4000/0.6)/230 ∠(−120° − 53.13°); |I2|/|I1| from these two phasors.
+    const rad = Math.PI / 180;
+    const ia = { re: 6000 / 230, im: 0 };
+    const mb = 4000 / 0.6 / 230;
+    const ib = { re: mb * Math.cos((-120 - Math.acos(0.6) / rad) * rad), im: mb * Math.sin((-120 - Math.acos(0.6) / rad) * rad) };
+    const s = sequenceComponents([ia, ib, { re: 0, im: 0 }]);
+    expect(check.negativeSequencePercent).toBeCloseTo((100 * Math.hypot(s.negative.re, s.negative.im)) / Math.hypot(s.positive.re, s.positive.im), 3);
+  });
+});
+
+describe('judgedNominals', () => {
+  it('refuses a normalised board and a NaN nominal (a TypeError and NaN before)', () => {
+    expect(refusal(() => judgedNominals(workshop as never)).message).toBe('result: expected a solved board from solveBoard(...) or solveBoardModel(...) (received a normalised board, not solved)');
+    expect(refusal(() => judgedNominals({ ...solved, board: { ...solved.board, nominalLineToNeutralV: Number.NaN } })).path).toBe('result.board.nominalLineToNeutralV');
+  });
+
+  it('a 4-wire 400/230 V board is judged at 230 V and 400 V', () => {
+    expect(judgedNominals(solved)).toEqual({ lineToNeutralV: 230, lineToLineV: 400 });
+  });
+});
+
+describe('collapseError', () => {
+  it('refuses nothing to quote (a TypeError, or "cannot carry these loads: " with nothing after)', () => {
+    expect(refusal(() => collapseError(null as never)).path).toBe('result');
+    expect(refusal(() => collapseError({ operatingPoint: { findings: [] } })).message).toBe(
+      'result.operatingPoint.findings: expected the findings of a collapsed operating point, at least one, as text (received a list of 0)',
+    );
+  });
+
+  it('quotes the findings it is given', () => {
+    expect(collapseError({ operatingPoint: { findings: ['line A below 50 %'] } }).message).toBe('no viable operating point: the supply cannot carry these loads: line A below 50 %');
   });
 });
