@@ -9,7 +9,7 @@
 import { conventionsOf } from '../board/conventions/boardConventions.js';
 import { labellerOf } from '../board/conventions/phaseNames.js';
 import type { Installation } from '../board/boardModel.js';
-import type { ConnectionSpec } from '../board/boardSchema.js';
+import { nameSchema, type ConnectionSpec } from '../board/boardSchema.js';
 import { InputError, inputIssue } from '../errors.js';
 import { parseOptions } from '../_internal/zodIssues.js';
 import { assertFiniteResult } from '../analysis/assertFiniteResult.js';
@@ -54,7 +54,7 @@ const optionsSchema = z.strictObject({
   objective: z.function().optional(),
   profile: z.looseObject({}).optional(),
   loadConditions: z
-    .array(z.strictObject({ name: z.string().min(1), weight: z.number().nonnegative(), factors: z.array(z.strictObject({ re: z.number(), im: z.number() })) }))
+    .array(z.strictObject({ name: nameSchema('condition name'), weight: z.number().nonnegative(), factors: z.array(z.strictObject({ re: z.number(), im: z.number() })) }))
     .optional(),
 });
 
