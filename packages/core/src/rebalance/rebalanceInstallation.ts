@@ -9,7 +9,8 @@
 import { conventionsOf } from '../board/conventions/boardConventions.js';
 import { labellerOf } from '../board/conventions/phaseNames.js';
 import type { Installation } from '../board/boardModel.js';
-import { nameSchema, type ConnectionSpec } from '../board/boardSchema.js';
+import type { ConnectionSpec } from '../board/boardSchema.js';
+import { NAME_CONTROLS_MESSAGE, NAME_WITHOUT_CONTROLS } from '../board/boardRanges.js';
 import { InputError, inputIssue } from '../errors.js';
 import { parseOptions } from '../_internal/zodIssues.js';
 import { assertFiniteResult } from '../analysis/assertFiniteResult.js';
@@ -54,7 +55,8 @@ const optionsSchema = z.strictObject({
   objective: z.function().optional(),
   profile: z.looseObject({}).optional(),
   loadConditions: z
-    .array(z.strictObject({ name: nameSchema('condition name'), weight: z.number().nonnegative(), factors: z.array(z.strictObject({ re: z.number(), im: z.number() })) }))
+    // Names made from interval times and what peaks there, any length; still no control characters.
+    .array(z.strictObject({ name: z.string().min(1).regex(NAME_WITHOUT_CONTROLS, { message: NAME_CONTROLS_MESSAGE }), weight: z.number().nonnegative(), factors: z.array(z.strictObject({ re: z.number(), im: z.number() })) }))
     .optional(),
 });
 
