@@ -5,6 +5,9 @@
  */
 import { describe, expect, it } from 'vitest';
 import {
+  bandVolts,
+  bandVoltsWords,
+  bandWords,
   checkBalance,
   checkTarget,
   collapseError,
@@ -48,6 +51,22 @@ describe('judgeVoltage', () => {
     expect(judgeVoltage(limits, 93.96)).toBe('within');
     expect(judgeVoltage(limits, 93.94)).toBe('under');
     expect(judgeVoltage(limits, 110.06)).toBe('over');
+  });
+});
+
+describe('bandVolts, bandVoltsWords and bandWords', () => {
+  it('refuse NaN limits and nominal voltages, which printed "NaN–NaN V" and "±undefined %"', () => {
+    expect(refusal(() => bandVolts(limits, Number.NaN))).toEqual({ path: 'nominalV', message: 'nominalV: expected a nominal voltage in V, a finite number above 0 (received NaN)' });
+    expect(refusal(() => bandVolts({ underPercent: Number.NaN, overPercent: 10 }, 230)).path).toBe('limits.underPercent');
+    expect(refusal(() => bandWords({ ...limits, overPercent: undefined as never })).path).toBe('limits.overPercent');
+    expect(refusal(() => bandVoltsWords(limits, { lineToNeutralV: Number.NaN, lineToLineV: 400 })).path).toBe('nominal.lineToNeutralV');
+    expect(refusal(() => bandVoltsWords(null as never, { lineToNeutralV: 230, lineToLineV: 400 })).path).toBe('limits');
+  });
+
+  it('write a good band: −6/+10 % of 230 V is 216.2–253.0 V', () => {
+    expect(bandVolts(limits, 230)).toEqual({ low: '216.2', high: '253.0' });
+    expect(bandWords(limits)).toBe('−6/+10 %');
+    expect(bandVoltsWords(limits, { lineToNeutralV: 230, lineToLineV: null })).toBe('230.0 V: 216.2–253.0 V line-to-neutral');
   });
 });
 
