@@ -5,6 +5,10 @@
  */
 import { describe, expect, it } from 'vitest';
 import {
+  assumedPfNote,
+  billingPowerFactorText,
+  isExportKW,
+  signedPfText,
   bandVolts,
   bandVoltsWords,
   bandWords,
@@ -78,6 +82,27 @@ describe('powerFactorText', () => {
 
   it('prints a good reading as before: 0.9 lagging on 10 kVA → "0.900 lag"', () => {
     expect(powerFactorText({ pf: 0.9, sense: 'lagging', kVA: 10, kW: 9, kvar: 4.36 })).toBe('0.900 lag');
+  });
+});
+
+describe('the power-factor words of reports', () => {
+  it('refuse NaN, which printed "NaN" (signedPfText, billingPowerFactorText) or read as not exported (isExportKW)', () => {
+    expect(refusal(() => signedPfText(Number.NaN))).toEqual({ path: 'pf', message: 'pf: expected a signed power factor from -1 to 1 (negative when the board exports), or null where no power flows (received NaN)' });
+    expect(refusal(() => signedPfText(1.5)).path).toBe('pf');
+    expect(refusal(() => billingPowerFactorText(Number.NaN)).path).toBe('pf');
+    expect(refusal(() => isExportKW(Number.NaN)).path).toBe('kW');
+    expect(refusal(() => assumedPfNote([2, Number.NaN])).path).toBe('assumedKW[1]');
+    expect(refusal(() => assumedPfNote([])).path).toBe('assumedKW');
+  });
+
+  it('print good figures as before: −0.95 is "0.950 export", a billing PF of 0.9 "0.900", −0.004 kW is exported', () => {
+    expect(signedPfText(-0.95)).toBe('0.950 export');
+    expect(signedPfText(null)).toBe('-');
+    expect(billingPowerFactorText(0.9)).toBe('0.900');
+    expect(billingPowerFactorText(null)).toBe('none (no energy imported)');
+    expect(isExportKW(-0.004)).toBe(false);
+    expect(isExportKW(-0.006)).toBe(true);
+    expect(assumedPfNote([2, -3])).toBe('*: pf not given in the file, taken as 1 (a resistive load; where it exports, a source at unity power factor).');
   });
 });
 
