@@ -5,6 +5,8 @@
  */
 import { describe, expect, it } from 'vitest';
 import {
+  motorDeratingFactor,
+  standardCtPrimaryA,
   assumedPfNote,
   billingPowerFactorText,
   isExportKW,
@@ -158,6 +160,24 @@ describe('unbalanceFactorFromLineMagnitudes', () => {
   it('balanced is 0 %, the flat triangle (400, 400, 800 V) its limit of 100 %', () => {
     expect(unbalanceFactorFromLineMagnitudes([400, 400, 400])).toBeCloseTo(0, 6);
     expect(unbalanceFactorFromLineMagnitudes([400, 400, 800])).toBeCloseTo(100, 6);
+  });
+});
+
+describe('motorDeratingFactor and standardCtPrimaryA', () => {
+  it('refuse NaN and null, which read as "operation not recommended" (NaN) and as 0 % or 0 A', () => {
+    expect(refusal(() => motorDeratingFactor(Number.NaN)).path).toBe('lineVoltageRatePercent');
+    expect(refusal(() => motorDeratingFactor(null as never)).path).toBe('lineVoltageRatePercent');
+    expect(refusal(() => motorDeratingFactor(-1)).path).toBe('lineVoltageRatePercent');
+    expect(refusal(() => standardCtPrimaryA(null as never))).toEqual({ path: 'amps', message: 'amps: expected the current the CT must carry, A, a finite number, 0 or more (received null)' });
+    expect(refusal(() => standardCtPrimaryA(Number.NaN)).path).toBe('amps');
+  });
+
+  it('read good figures as before: NEMA MG 1 gives 0.95 at 2 % and 0.91 between 2.5 % (0.93) and 3 % (0.89); 113 A takes a 125 A CT', () => {
+    expect(motorDeratingFactor(2)).toBeCloseTo(0.95, 12);
+    expect(motorDeratingFactor(2.75)).toBeCloseTo(0.91, 12);
+    expect(motorDeratingFactor(6)).toBeNull();
+    // IEC 61869-2 preferred primaries (from memory): 100, 125, 150 A.
+    expect(standardCtPrimaryA(113)).toBe(125);
   });
 });
 

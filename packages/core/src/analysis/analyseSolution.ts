@@ -8,7 +8,7 @@ import { lineRatingOf, type PhaseId } from '../board/boardModel.js';
 import { judgedNominalOf } from '../board/nominalVoltages.js';
 import { terminalVoltage, type NetworkSolution } from '../network/solveNetwork.js';
 import { fortescueComponents, type SequenceSet } from './symmetricalComponents.js';
-import { deviationFromAveragePercent, motorDeratingFactor } from './unbalanceIndices.js';
+import { deviationFromAveragePercent, nemaDerating } from './unbalanceIndices.js';
 import { boardPowerDefinitions, positiveSequencePower } from './powerDefinitions.js';
 import { conventionsOf } from '../board/conventions/boardConventions.js';
 import { labelIn } from '../board/conventions/phaseNames.js';
@@ -141,7 +141,7 @@ function readSequences(solution: NetworkSolution, phaseVoltages: readonly Comple
     currentNegativePercent: percentOf(is.negative, is.positive),
     currentZeroPercent: percentOf(is.zero, is.positive),
     currentDeviationPercent: deviationFromAveragePercent(solution.lineCurrents.map(abs), currentFloor),
-    motorDeratingFactor: motorDeratingFactor(lineRate),
+    motorDeratingFactor: nemaDerating(lineRate),
   };
   return { sequences: { voltage: asPhasors(vs), current: asPhasors(is) }, unbalance, V1: vs.positive, I1: is.positive };
 }
