@@ -5,6 +5,9 @@
  */
 import { describe, expect, it } from 'vitest';
 import {
+  meteringPointWords,
+  nominalVoltageWords,
+  writeVoltageNotation,
   motorDeratingFactor,
   standardCtPrimaryA,
   assumedPfNote,
@@ -160,6 +163,23 @@ describe('unbalanceFactorFromLineMagnitudes', () => {
   it('balanced is 0 %, the flat triangle (400, 400, 800 V) its limit of 100 %', () => {
     expect(unbalanceFactorFromLineMagnitudes([400, 400, 400])).toBeCloseTo(0, 6);
     expect(unbalanceFactorFromLineMagnitudes([400, 400, 800])).toBeCloseTo(100, 6);
+  });
+});
+
+describe('voltage and metering words', () => {
+  it('refuse NaN voltages ("NaN/NaN V"), an unknown system or region, and a metering point that is no name ("the incomer of null")', () => {
+    expect(refusal(() => writeVoltageNotation('three-phase-4wire', Number.NaN, 400, 'iec')).path).toBe('lineToNeutralV');
+    expect(refusal(() => writeVoltageNotation('two-phase' as never, 230, 400, 'iec')).path).toBe('system');
+    expect(refusal(() => writeVoltageNotation('three-phase-4wire', 230, 400, 'europe' as never)).path).toBe('region');
+    expect(refusal(() => nominalVoltageWords({ ...solved.board, nominalLineToLineV: Number.NaN })).path).toBe('board.nominalLineToLineV');
+    expect(refusal(() => meteringPointWords(null as never))).toEqual({ path: 'point', message: 'point: expected "origin" or the name of a board (received null)' });
+  });
+
+  it('write good figures as before: 230/400 V (IEC), 208Y/120 V (North America), the workshop board at 400 and 230 V', () => {
+    expect(writeVoltageNotation('three-phase-4wire', 230, 400, 'iec')).toBe('230/400 V');
+    expect(writeVoltageNotation('three-phase-4wire', 120, 208, 'north-america')).toBe('208Y/120 V');
+    expect(nominalVoltageWords(solved.board)).toBe('400 V line-to-line, 230 V line-to-neutral');
+    expect(meteringPointWords('yard')).toBe('the incomer of yard');
   });
 });
 
