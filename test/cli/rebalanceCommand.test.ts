@@ -188,6 +188,23 @@ loads:
     expect(r.stdout).toContain('"Oven" (circuit 1), "Spare" (circuit 13) take breaker positions on their new lines');
   });
 
+  it('a moved 2-pole breaker names every position it takes: listed "1,3", or "14" with the position below it', () => {
+    const text = `name: print shop
+supply: { system: three-phase-4wire, voltage: { lineToLine: 208 }, frequencyHz: 60 }
+loads:
+  - { name: dryer, circuit: "1,3", poles: 2, connection: A-B, kW: 4.5, pf: 1 }
+  - { name: welder, circuit: "9", poles: 2, connection: C-A, kW: 3, pf: 0.7 }
+  - { name: kettle, circuit: "14", poles: 2, connection: A-B, kW: 3, pf: 1 }
+rebalance:
+  pinned: [{ circuit: dryer, on: B-C }, { circuit: welder, on: B-C }, { circuit: kettle, on: C-A }]
+`;
+    const r = runTrivar(['rebalance', '-', '--no-table'], text);
+    expect(r.code).toBe(0);
+    expect(r.stdout).toMatch(/ 1,3 +1 +dryer +A-B +B-C +new positions and nos\. \(1,3 are on A-B\)/);
+    expect(r.stdout).toMatch(/ 9 +2 +welder +C-A +B-C +check: nos\. 9 and 11 below it are on B-C already/);
+    expect(r.stdout).toMatch(/ 14 +3 +kettle +A-B +C-A +new positions and nos\. \(14 and 16 below it are on A-B\)/);
+  });
+
   it('a single-phase board: nothing to rebalance, said plainly, no scores, exit 0 (it printed two scores that disagreed)', () => {
     const r = runTrivar(['rebalance', '-'], 'name: Single\nsupply: { system: single-phase, voltage: { lineToNeutral: 230 }, frequencyHz: 50 }\nloads:\n  - { name: W1, connection: A-N, kW: 3, pf: 0.9 }\n');
     expect(r.code).toBe(0);

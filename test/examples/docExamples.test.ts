@@ -37,8 +37,8 @@ describe('TSDoc examples', () => {
     };
     const report = rebalanceBoard(normaliseBoard(parseBoard(studio)), { moveLimit: 2 });
     expect(report.moves).toEqual([
-      { board: 'Studio', circuit: '1', listPosition: 1, name: 'Kiln', from: 'A-N', to: 'B-N', circuitNumber: { verdict: 'position-changes', implied: null } },
-      { board: 'Studio', circuit: '5', listPosition: 3, name: 'Lights', from: 'B-N', to: 'C-N', circuitNumber: { verdict: 'position-changes', implied: null } },
+      { board: 'Studio', circuit: '1', listPosition: 1, name: 'Kiln', from: 'A-N', to: 'B-N', circuitNumber: { verdict: 'position-changes', implied: null, positions: null } },
+      { board: 'Studio', circuit: '5', listPosition: 3, name: 'Lights', from: 'B-N', to: 'C-N', circuitNumber: { verdict: 'position-changes', implied: null, positions: null } },
     ]);
   });
 

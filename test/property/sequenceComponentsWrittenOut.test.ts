@@ -1,11 +1,12 @@
 /**
- * sequenceComponents is written out in plain arithmetic (no object per step); it must give, to the
- * bit, what Fortescue's formulas composed of the complex helpers give.
+ * The sequence components (fortescueComponents, the unchecked core of the public sequenceComponents)
+ * are written out in plain arithmetic (no object per step); they must give, to the bit, what
+ * Fortescue's formulas composed of the complex helpers give, infinities included.
  */
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { A_OPERATOR, A_SQUARED, add, mul, scale, type ComplexValue } from '../../packages/core/src/complex.js';
-import { sequenceComponents } from '../../packages/core/src/analysis/symmetricalComponents.js';
+import { fortescueComponents as sequenceComponents } from '../../packages/core/src/analysis/symmetricalComponents.js';
 
 function composed([xa, xb, xc]: readonly [ComplexValue, ComplexValue, ComplexValue], sequence: 'ABC' | 'ACB') {
   const [ab, ac] = sequence === 'ABC' ? [A_OPERATOR, A_SQUARED] : [A_SQUARED, A_OPERATOR];

@@ -62,8 +62,13 @@ function breakerWords(m: RebalanceReport['moves'][number], on: (c: string) => st
   const n = m.circuitNumber;
   if (n === null) return '';
   const implied = n.implied ? on(n.implied.join('-')) : '';
-  if (n.verdict === 'renumber') return `new position and no. (${m.circuit} is on ${implied})`;
-  if (n.verdict === 'matches-new-line') return `check: no. ${m.circuit} is on ${implied} already`;
+  // A multi-pole breaker given one number takes the positions below it too, "14 and 16 below it".
+  const positions = n.positions ?? [];
+  const oneNumber = positions.length > 1 && m.circuit!.trim() === String(positions[0]);
+  const written = oneNumber ? `${positions.join(' and ')} below it` : m.circuit;
+  const several = positions.length > 1;
+  if (n.verdict === 'renumber') return `new position${several ? 's' : ''} and no${several ? 's' : ''}. (${written} ${several ? 'are' : 'is'} on ${implied})`;
+  if (n.verdict === 'matches-new-line') return `check: no${several ? 's' : ''}. ${written} ${several ? 'are' : 'is'} on ${implied} already`;
   return 'new position: update its no.';
 }
 

@@ -100,6 +100,14 @@ export function inputIssuesFromZod(issues: readonly core.$ZodIssue[], root: unkn
       // Never none: a parse that failed says why, even where the object read is not the one zod saw.
       return (keys.length ? keys : issue.keys).map((key) => inputIssue('unknown_key', formatPath([...path, key]), unknownKeyExpected(key, path, parsedWith), key));
     }
+    // A record key the key schema refused (a group or scenario load named with a control character):
+    // the key is what was wrong, so the issue is the key's, received the key, not the value under it.
+    if (issue.code === 'invalid_key') {
+      const inner = issue.issues[0] as core.$ZodIssue | undefined;
+      const key = issue.path[issue.path.length - 1];
+      const expected = inner ? expectedFor({ ...inner, path: [] } as core.$ZodIssue) : issue.message;
+      return [inputIssue('invalid_key', formatPath(path), `a key that is ${expected}`, typeof key === 'symbol' ? String(key) : key)];
+    }
     // A refinement may report a value of its own in params.received (a spectrum's total, not the list).
     const received = issue.code === 'custom' && issue.params?.received !== undefined ? (issue.params.received as unknown) : valueAt(root, issue.path);
     // A refinement names its own code in params.code (`duplicate`, `not_integer`...).

@@ -7,8 +7,8 @@ import { isThreePhase } from '../board/systemTopology.js';
 import { lineRatingOf, type PhaseId } from '../board/boardModel.js';
 import { judgedNominalOf } from '../board/nominalVoltages.js';
 import { terminalVoltage, type NetworkSolution } from '../network/solveNetwork.js';
-import { sequenceComponents, type SequenceSet } from './symmetricalComponents.js';
-import { deviationFromAveragePercent, motorDeratingFactor } from './unbalanceIndices.js';
+import { fortescueComponents, type SequenceSet } from './symmetricalComponents.js';
+import { deviationFromAveragePercent, nemaDerating } from './unbalanceIndices.js';
 import { boardPowerDefinitions, positiveSequencePower } from './powerDefinitions.js';
 import { conventionsOf } from '../board/conventions/boardConventions.js';
 import { labelIn } from '../board/conventions/phaseNames.js';
@@ -120,14 +120,14 @@ function readLosses(solution: NetworkSolution): LossReading {
 
 /** Phase voltages' sequence components, round-off of the zero and negative sequences (a balanced board's) read as zero. */
 function voltageSequences(phaseVoltages: readonly ComplexValue[], sequence: 'ABC' | 'ACB') {
-  const vs = sequenceComponents(phaseVoltages as unknown as [ComplexValue, ComplexValue, ComplexValue], sequence);
+  const vs = fortescueComponents(phaseVoltages as unknown as [ComplexValue, ComplexValue, ComplexValue], sequence);
   return sequencesAbove(vs, SEQUENCE_VOLTAGE_RESOLUTION * abs(vs.positive));
 }
 
 function readSequences(solution: NetworkSolution, phaseVoltages: readonly ComplexValue[], phases: readonly PhaseReading[], lineToLine: readonly LineToLineReading[], currentFloor: number) {
   const triple = (xs: readonly ComplexValue[]) => xs as unknown as [ComplexValue, ComplexValue, ComplexValue];
   const vs = voltageSequences(phaseVoltages, solution.board.sequence);
-  const is = sequencesAbove(sequenceComponents(triple(solution.lineCurrents), solution.board.sequence), currentFloor);
+  const is = sequencesAbove(fortescueComponents(triple(solution.lineCurrents), solution.board.sequence), currentFloor);
   const asPhasors = (x: typeof vs) => ({ zero: toPhasor(x.zero), positive: toPhasor(x.positive), negative: toPhasor(x.negative) });
   // Magnitudes of a balanced set differ in their last bits: below the sequences' resolution (voltages)
   // and the current noise floor (currents) a deviation is round-off, as |V2| and |I2| are.
@@ -141,7 +141,7 @@ function readSequences(solution: NetworkSolution, phaseVoltages: readonly Comple
     currentNegativePercent: percentOf(is.negative, is.positive),
     currentZeroPercent: percentOf(is.zero, is.positive),
     currentDeviationPercent: deviationFromAveragePercent(solution.lineCurrents.map(abs), currentFloor),
-    motorDeratingFactor: motorDeratingFactor(lineRate),
+    motorDeratingFactor: nemaDerating(lineRate),
   };
   return { sequences: { voltage: asPhasors(vs), current: asPhasors(is) }, unbalance, V1: vs.positive, I1: is.positive };
 }
@@ -204,12 +204,12 @@ export function sequenceCurrentsAbove(solved: SolvedLines, floor: number): Seque
   const lines = solved.lineCurrents.map((i) => (abs(i) < floor ? ZERO : i));
   const triple = (xs: readonly ComplexValue[]) => xs as unknown as [ComplexValue, ComplexValue, ComplexValue];
   const vs = voltageSequences(boardVoltages(solved).phase, solved.board.sequence);
-  const is = sequencesAbove(sequenceComponents(triple(lines), solved.board.sequence), floor);
+  const is = sequencesAbove(fortescueComponents(triple(lines), solved.board.sequence), floor);
   const { p1, q1 } = positiveSequencePower(vs.positive, is.positive);
   return { current: is, positiveSequence: { kW: p1 / 1000, kvar: q1 / 1000 } };
 }
 
-/** What a target check reads of a solved board (`checkTarget` in correction/correctionTarget.ts). */
+/** What a target check reads of a solved board (`judgeTarget` in correction/correctionTarget.ts). */
 export type TargetReadings = Pick<BoardResult, 'conventions' | 'phases' | 'powerFactor'>;
 
 /**
@@ -226,7 +226,7 @@ export function readTargetFigures(solved: NetworkSolution): TargetReadings {
   const lineToLine = readLineToLine(solution, voltages.bus);
   const triple = (xs: readonly ComplexValue[]) => xs as unknown as [ComplexValue, ComplexValue, ComplexValue];
   const sequence = isThreePhase(solution.board.system)
-    ? { V1: sequenceComponents(triple(voltages.phase), solution.board.sequence).positive, I1: sequenceComponents(triple(solution.lineCurrents), solution.board.sequence).positive }
+    ? { V1: fortescueComponents(triple(voltages.phase), solution.board.sequence).positive, I1: fortescueComponents(triple(solution.lineCurrents), solution.board.sequence).positive }
     : null;
   return { conventions: conventionsOf(solution.board), phases, powerFactor: readPowerFactors(solution, phases, lineToLine, sequence) };
 }

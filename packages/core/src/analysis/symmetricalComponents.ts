@@ -5,7 +5,7 @@
  * the sequence the supply actually runs in.
  */
 import { A_OPERATOR, A_SQUARED, type ComplexValue } from '../complex.js';
-import { argumentIssueError } from '../_internal/argumentChecks.js';
+import { argumentIssueError, checkNumberArgument } from '../_internal/argumentChecks.js';
 
 export interface SequenceSet<T = ComplexValue> {
   readonly zero: T;
@@ -15,18 +15,32 @@ export interface SequenceSet<T = ComplexValue> {
 
 const THIRD = 1 / 3;
 
-const isComplex = (v: unknown): boolean => typeof v === 'object' && v !== null && typeof (v as ComplexValue).re === 'number' && typeof (v as ComplexValue).im === 'number';
-/** Three complex values: the shape only (a few reads; the sizing loops call this on every trial). */
-const isThreePhasors = (x: unknown): boolean => Array.isArray(x) && x.length === 3 && isComplex(x[0]) && isComplex(x[1]) && isComplex(x[2]);
+const isComplex = (v: unknown): v is ComplexValue => typeof v === 'object' && v !== null && typeof (v as ComplexValue).re === 'number' && typeof (v as ComplexValue).im === 'number';
+const isThreePhasors = (x: unknown): x is readonly [ComplexValue, ComplexValue, ComplexValue] => Array.isArray(x) && x.length === 3 && isComplex(x[0]) && isComplex(x[1]) && isComplex(x[2]);
 
 /**
- * Written out rather than composed of `add`/`mul`/`scale` (every trial solve of the sizing loops
- * reads these, and the helpers allocate an object per step): the same operations in the same
- * order as scale(add(add(xa, mul(a, xb)), mul(a², xc)), 1/3), so the same numbers to the bit.
+ * The public entry: three phasors with finite parts, a sequence by name. NaN or Infinity in a part
+ * is refused here, naming the part, rather than carried into every component as NaN.
+ * @throws {InputError} naming `x`, `x[k].re`/`x[k].im` or `sequence`
  */
 export function sequenceComponents(x: readonly [ComplexValue, ComplexValue, ComplexValue], sequence: 'ABC' | 'ACB' = 'ABC'): SequenceSet {
   if (!isThreePhasors(x)) throw argumentIssueError('x', 'three complex values [{ re, im }, { re, im }, { re, im }], phases A, B, C', x);
+  x.forEach((v, k) => {
+    checkNumberArgument(v.re, `x[${k}].re`, 'a finite real part');
+    checkNumberArgument(v.im, `x[${k}].im`, 'a finite imaginary part');
+  });
   if (sequence !== 'ABC' && sequence !== 'ACB') throw argumentIssueError('sequence', '"ABC" or "ACB"', sequence);
+  return fortescueComponents(x, sequence);
+}
+
+/**
+ * The components without argument checks, for the solver's own phasors (every trial solve of the
+ * sizing loops reads these; a NaN there is caught by assertFiniteResult.ts on the result).
+ * Written out rather than composed of `add`/`mul`/`scale` (the helpers allocate an object per
+ * step): the same operations in the same order as scale(add(add(xa, mul(a, xb)), mul(a², xc)), 1/3),
+ * so the same numbers to the bit.
+ */
+export function fortescueComponents(x: readonly [ComplexValue, ComplexValue, ComplexValue], sequence: 'ABC' | 'ACB' = 'ABC'): SequenceSet {
   const xa = x[0];
   const xb = x[1];
   const xc = x[2];

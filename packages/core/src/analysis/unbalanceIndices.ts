@@ -57,6 +57,13 @@ export function unbalanceFactorFromLineMagnitudes(magnitudes: readonly [number, 
  * @example motorDeratingFactor(2) //=> 0.95
  */
 export function motorDeratingFactor(lineVoltageRatePercent: number): number | null {
+  // NaN read as "above 5 %" (null) and null as 0 % (1.00): the public entry refuses both.
+  checkNumberArgument(lineVoltageRatePercent, 'lineVoltageRatePercent', 'the NEMA line-voltage unbalance rate, %, a finite number, 0 or more', (x) => x >= 0);
+  return nemaDerating(lineVoltageRatePercent);
+}
+
+/** motorDeratingFactor without the argument check: the analysis of every solve reads its own figure (a NaN there is assertFiniteResult's to report). */
+export function nemaDerating(lineVoltageRatePercent: number): number | null {
   const points: readonly [number, number][] = [
     [1, 1],
     [1.5, 0.97],

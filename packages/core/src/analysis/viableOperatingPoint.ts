@@ -9,10 +9,20 @@ import { solveInstallationNetwork, type NetworkSolution } from '../network/solve
 import { installationOf } from '../network/installationModel.js';
 import { analyseSolution } from './analyseSolution.js';
 import type { OperatingPoint } from './boardResult.js';
-import { assertBoardModel } from '../board/modelGuards.js';
+import { argumentError, assertBoardModel, isObject } from '../board/modelGuards.js';
+import { argumentIssueError } from '../_internal/argumentChecks.js';
 
-/** The error for a solved board whose operating point is a collapse (reason `collapsed`). */
+/**
+ * The error for a solved board whose operating point is a collapse (reason `collapsed`).
+ * @throws {InputError} naming `result` or its findings when there is no collapse finding to quote (an error
+ *   saying "cannot carry these loads: " and nothing after it would contradict a viable board)
+ */
 export function collapseError(result: { readonly operatingPoint: Pick<OperatingPoint, 'findings'> }): NumericalError {
+  if (!isObject(result) || !isObject(result.operatingPoint))
+    throw argumentError('result', 'a solved board from solveBoard(...) or solveBoardModel(...) whose operating point collapsed', result, 'the result argument is not a solved board', 'solved');
+  const findings: unknown = result.operatingPoint.findings;
+  if (!Array.isArray(findings) || findings.length === 0 || !findings.every((f) => typeof f === 'string' && f.length > 0))
+    throw argumentIssueError('result.operatingPoint.findings', 'the findings of a collapsed operating point, at least one, as text', findings);
   return new NumericalError('collapsed', `no viable operating point: the supply cannot carry these loads: ${result.operatingPoint.findings.join('; ')}`);
 }
 

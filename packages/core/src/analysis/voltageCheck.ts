@@ -5,6 +5,8 @@
  * disagree with each other or with the percentages beside them.
  */
 import { judgeVoltage, type VoltageLimits } from '../board/conventions/voltageLimits.js';
+import { checkNumberArgument } from '../_internal/argumentChecks.js';
+import { argumentError, isObject } from '../board/modelGuards.js';
 import type { BoardResult, LineToLineReading, LoadReading, PhaseReading } from './boardResult.js';
 
 export interface VoltageExtreme {
@@ -69,8 +71,14 @@ export function checkVoltages(input: {
 }
 
 /** The nominal voltages a board's limits are judged at: phase voltages only where a neutral gives them meaning, as above. */
+/** @throws {InputError} naming `result` or its board's nominal voltage when it is not a solved board's */
 export function judgedNominals(result: Pick<BoardResult, 'board' | 'neutral' | 'lineToLine' | 'phases'>): { lineToNeutralV: number | null; lineToLineV: number | null } {
+  // Not in any loop (a report asks once per board): the whole check, so a normalised board or NaN is named, not read.
+  if (!isObject(result) || !isObject(result.board) || !Array.isArray(result.lineToLine) || !Array.isArray(result.phases) || !(result.neutral === null || isObject(result.neutral)))
+    throw argumentError('result', 'a solved board from solveBoard(...) or solveBoardModel(...)', result, 'the result argument is not a solved board', 'solved');
   const b = result.board;
+  checkNumberArgument(b.nominalLineToNeutralV, 'result.board.nominalLineToNeutralV', 'a nominal voltage in V, a finite number above 0', (x) => x > 0);
+  if (b.nominalLineToLineV !== null) checkNumberArgument(b.nominalLineToLineV, 'result.board.nominalLineToLineV', 'a nominal voltage in V, a finite number above 0, or null', (x) => x > 0);
   return {
     lineToNeutralV: result.neutral !== null || result.lineToLine.length === 0 ? b.nominalLineToNeutralV : null,
     lineToLineV: b.nominalLineToLineV !== null && result.phases.length > 1 ? b.nominalLineToLineV : null,

@@ -64,6 +64,10 @@ export const CIRCUIT_NUMBER = { min: 1, max: 9999 } as const;
 /** Longest voltage notation ("208Y/120") and AWG size ("4/0") read, in characters. */
 /** Longest board or circuit name: a name heads a table row and a box in the drawings. */
 export const NAME_MAX_CHARACTERS = 100;
+/** Longest name a study section refers to: a board's and a load's name joined by "/" or "//" ("<board>//<load>"). */
+export const NAME_REFERENCE_MAX_CHARACTERS = 2 * NAME_MAX_CHARACTERS + 2;
+/** Longest label printed beside charges (a currency: "EUR", "$", "units"). */
+export const CURRENCY_MAX_CHARACTERS = 8;
 /** Longest circuit number or way ("L1-12", "3,5,7"): a cell of the panel schedule (common practice, no source). */
 export const CIRCUIT_MAX_CHARACTERS = 24;
 /**

@@ -25,6 +25,7 @@ import {
   FREQUENCIES_HZ,
   LOAD_MODELS,
   NAME_MAX_CHARACTERS,
+  NAME_REFERENCE_MAX_CHARACTERS,
   CIRCUIT_MAX_CHARACTERS,
   NAME_CONTROLS_MESSAGE,
   NAME_VISIBLE,
@@ -66,6 +67,16 @@ const readableText = (maxCharacters: number) =>
 
 /** A board, installation or circuit name: some visible text, short enough to head a table row. */
 export const nameSchema = (what: string) => readableText(NAME_MAX_CHARACTERS).describe(`${what} (at most ${NAME_MAX_CHARACTERS} characters)`);
+
+/**
+ * A name a study section gives or refers to (a scenario, a group, a condition, a board or load named
+ * again): the rule of a load's name, so no name a report prints holds a control or direction override.
+ * A reference to a load may be written "<board>/<load>" or "<board>//<load>", hence the longer limit.
+ */
+export const nameReferenceSchema = (what: string) => readableText(NAME_REFERENCE_MAX_CHARACTERS).describe(what);
+
+/** A short label printed as written (a currency beside charges): the name rule, at most `maxCharacters`. */
+export const labelSchema = (what: string, maxCharacters: number) => readableText(maxCharacters).describe(what);
 
 const impedanceOf = (r: PhysicalRange, x: PhysicalRange) =>
   z

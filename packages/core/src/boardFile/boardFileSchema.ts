@@ -5,7 +5,7 @@
  * is added here (and its rules in validateBoard.ts).
  */
 import * as z from 'zod';
-import { boardSchemaWith } from '../board/boardSchema.js';
+import { boardSchemaWith, nameSchema } from '../board/boardSchema.js';
 import { installationSchemaWith } from '../board/installationSchema.js';
 import { harmonicLoadFields, harmonicsSectionSchema, installationHarmonicsSectionSchema } from '../harmonics/harmonicsSpec.js';
 import { profileSpecSchema } from '../profile/profileSpec.js';
@@ -28,7 +28,7 @@ export const installationSchema = installationSchemaWith({
   loadFields: harmonicLoadFields,
   sections: {
     correction: correctionSection
-      .extend({ board: z.string().min(1).optional().describe('the board the bank goes on; default the main board') })
+      .extend({ board: nameSchema('board name').optional().describe('the board the bank goes on; default the main board') })
       .optional()
       .describe(CORRECTION_WORDS),
     profile: profileSpecSchema.optional(),

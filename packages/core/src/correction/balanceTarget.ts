@@ -7,6 +7,7 @@ import type { BoardResult } from '../analysis/boardResult.js';
 import type { BalanceTargetSpec } from './correctionSpec.js';
 import { CORRECTION_DEFAULTS } from './correctionDefaults.js';
 import { distinctDigits } from './correctionWording.js';
+import { assertBalanceArguments } from './targetArguments.js';
 
 export interface BalanceTarget {
   readonly maxNegativeSequencePercent: number;
@@ -35,7 +36,17 @@ export function resolveBalanceTarget(spec: BalanceTargetSpec | undefined, lineTo
 /** Relative slack on the balance figures (the ideal compensator drives them to round-off). */
 const SLACK_PERCENT = 1e-7;
 
+/**
+ * Judges a solved board against a balance target.
+ * @throws {InputError} naming `result` when it is not a solved board, or the field of `target` that is not a percentage in the schema's range
+ */
 export function checkBalance(result: BoardResult, target: BalanceTarget): BalanceCheck {
+  assertBalanceArguments(result, target);
+  return judgeBalance(result, target);
+}
+
+/** checkBalance without the argument checks: the sizing loops judge every trial state they built. */
+export function judgeBalance(result: BoardResult, target: BalanceTarget): BalanceCheck {
   const seq = result.sequences;
   const i1 = seq ? seq.current.positive.magnitude : 0;
   const negativeSequencePercent = i1 > 0 && seq ? (100 * seq.current.negative.magnitude) / i1 : 0;

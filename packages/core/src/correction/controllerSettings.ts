@@ -19,6 +19,8 @@ const CT_SERIES = [10, 12.5, 15, 20, 25, 30, 40, 50, 60, 75];
 
 /** The smallest standard CT primary at or above `amps`. */
 export function standardCtPrimaryA(amps: number): number {
+  // null read as 0 A (10 A) and NaN fell through every rating to NaN.
+  if (!(amps >= 0 && Number.isFinite(amps))) checkNumberArgument(amps, 'amps', 'the current the CT must carry, A, a finite number, 0 or more', (x) => x >= 0);
   for (let decade = 1; decade <= 1e5; decade *= 10) for (const r of CT_SERIES) if (r * decade >= amps - 1e-9) return r * decade;
   return Math.ceil(amps);
 }

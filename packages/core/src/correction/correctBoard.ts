@@ -11,7 +11,7 @@ import { InputError, inputIssue } from '../errors.js';
 import { kvarFromSusceptance, reactorKvarOf, type EquipmentGroup } from './equipment.js';
 import { parseCorrectionSpec } from './validateCorrectionSpec.js';
 import { resolveTarget, TARGET_SLACK, widthlessTargetPf, type TargetCheck } from './correctionTarget.js';
-import { checkBalance } from './balanceTarget.js';
+import { judgeBalance } from './balanceTarget.js';
 import { sizeStarBank } from './sizeStarBank.js';
 import { sizeDeltaBank } from './sizeDeltaBank.js';
 import { sizeBalancingCompensator } from './sizeBalancingCompensator.js';
@@ -187,7 +187,7 @@ export function correctBoard(board: Board, spec: unknown): CorrectionReport {
     const verification = verifyCorrection(board, verifyOptions(recommended));
     const verdict: BuildVerdict = selection?.unbuildable
       ? 'no-units'
-      : !verification.check.met || (sizing.arrangement === 'balancing-compensator' && !checkBalance(verification.after, sizing.balance).met)
+      : !verification.check.met || (sizing.arrangement === 'balancing-compensator' && !judgeBalance(verification.after, sizing.balance).met)
       ? 'misses'
       : !verification.tolerance.low.check.met || verification.tolerance.high.check.leadingLines.length > 0
       ? 'meets-at-nominal'
@@ -240,7 +240,7 @@ export function correctBoard(board: Board, spec: unknown): CorrectionReport {
   const resizing = refit ? { reactors: refit.reactors, objectiveSized: refit.objectiveSized, objectiveResized: refit.objectiveResized, converged: refit.converged, used: useRefit, solves: refit.solves } : null;
   const idealVerification = sizing.arrangement === 'balancing-compensator' ? verifyCorrection(board, verifyOptions(sizing.ideal.equipment)) : null;
 
-  const balance = sizing.arrangement === 'balancing-compensator' ? checkBalance(verification.after, sizing.balance) : null;
+  const balance = sizing.arrangement === 'balancing-compensator' ? judgeBalance(verification.after, sizing.balance) : null;
   let status: CorrectionStatus;
   const reasons = [...sizing.reasons];
   if (sizing.status === 'already-meets-target') status = 'already-meets-target';

@@ -5,6 +5,7 @@
  * `correctionDefaults.ts`, board-dependent rules in `correctionRules.ts`.
  */
 import * as z from 'zod';
+import { nameReferenceSchema, nameSchema } from '../board/boardSchema.js';
 
 const powerFactor = z.number().gt(0).max(1);
 const percent = z.number().nonnegative();
@@ -32,9 +33,7 @@ export const targetSchema = z
     maxLaggingPf: powerFactor
       .optional()
       .describe('upper bound: do not correct beyond this lagging PF (keeps every line lagging); must be >= pf'),
-    measuredAt: z
-      .string()
-      .min(1)
+    measuredAt: nameSchema('origin or a board name')
       .optional()
       .describe(
         "where the target is measured: origin (the supply's terminals, where the service cable starts, e.g. a tariff meter) or the name of a board the equipment's board is fed through (at its incomer); default the equipment's own board",
@@ -44,7 +43,7 @@ export const targetSchema = z
 
 export const capacitorUnitSchema = z
   .strictObject({
-    name: z.string().min(1).optional().describe('catalogue designation'),
+    name: nameSchema('catalogue designation').optional(),
     kind: z
       .enum(['three-phase', 'single-phase'])
       .optional()
@@ -86,7 +85,7 @@ export const lightLoadSchema = z
   .strictObject({
     fraction: z.number().min(0).max(1).describe('fraction of every board load present at light load'),
     perLoad: z
-      .record(z.string(), z.number().min(0).max(1))
+      .record(nameReferenceSchema('a load name'), z.number().min(0).max(1))
       .optional()
       .describe('fractions for named loads, overriding fraction (0 = off): a second load set'),
   })

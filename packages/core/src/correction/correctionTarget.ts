@@ -23,6 +23,7 @@ import { InputError, inputIssue } from '../errors.js';
 import { meteredStatement, PER_LINE_STATEMENTS, SINGLE_LINE_STATEMENT, TARGET_STATEMENTS, targetShortfall } from './correctionWording.js';
 import { labellerOf } from '../board/conventions/phaseNames.js';
 import { argumentError, assertBoardModel, isObject } from '../board/modelGuards.js';
+import { assertBeforeReadings, assertResolvedTarget, assertTargetReadings } from './targetArguments.js';
 
 export type BoardTargetDefinition = Exclude<TargetDefinition, 'per-line'>;
 
@@ -174,8 +175,17 @@ const UNLOADED_FRACTION = 1e-6;
  * @param before the board before correction: lines that already passed their
  *   lower τ bound there are held to that (not to lead more); omit to judge the
  *   bound as written.
+ * @throws {InputError} naming the argument, or its field, that is not a solved board's readings or a resolved target
  */
 export function checkTarget(result: TargetReadings, target: ResolvedTarget, before?: Pick<BoardResult, 'phases'>): TargetCheck {
+  assertTargetReadings(result);
+  assertResolvedTarget(target, result);
+  assertBeforeReadings(before, result.phases.length);
+  return judgeTarget(result, target, before);
+}
+
+/** checkTarget without the argument checks: the sizing loops judge every trial state they built. */
+export function judgeTarget(result: TargetReadings, target: ResolvedTarget, before?: Pick<BoardResult, 'phases'>): TargetCheck {
   const largest = Math.max(...result.phases.map((p) => p.kVA), 0);
   // Shortfalls name lines the way the board file does (L1 or A).
   const label = labellerOf(result.conventions.phaseNames);

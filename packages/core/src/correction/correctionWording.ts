@@ -6,6 +6,7 @@ import type { PhaseLabel } from '../board/conventions/phaseNames.js';
 import type { PowerFactorSense } from '../analysis/boardResult.js';
 import type { Arrangement, TargetDefinition } from './correctionSpec.js';
 import type { BuildVerdict, SmallBranch, SparedBranch, TargetName } from './correctionResult.js';
+import { argumentIssueError } from '../_internal/argumentChecks.js';
 
 interface TargetWords {
   readonly definition: TargetDefinition;
@@ -395,8 +396,11 @@ export const comparisonWording = {
 };
 
 /** Where a target is measured, in words: the origin of the installation, or a board's incomer (see meteringPoint.ts). */
-export const meteringPointWords = (point: string): string =>
-  point === 'origin' ? "the origin of the installation (the supply's terminals, where the service cable starts)" : `the incomer of ${point}`;
+export function meteringPointWords(point: string): string {
+  // null read "the incomer of null".
+  if (typeof point !== 'string' || point.length === 0) throw argumentIssueError('point', '"origin" or the name of a board', point);
+  return point === 'origin' ? "the origin of the installation (the supply's terminals, where the service cable starts)" : `the incomer of ${point}`;
+}
 
 /** A target measured away from the bank: its controller must read there, or hold a band set for where it reads. */
 export const meteringWarning = (point: string, board: string): string =>

@@ -9,9 +9,9 @@
 import type { Board } from '../board/boardModel.js';
 import type { SolveOptions } from '../network/solveNetwork.js';
 import { balanceTargetSchema, compensatorSchema, targetSchema, type BalanceTargetSpec, type CompensatorSpec, type TargetSpec } from './correctionSpec.js';
-import { checkBalance, resolveBalanceTarget, type BalanceTarget } from './balanceTarget.js';
+import { judgeBalance, resolveBalanceTarget, type BalanceTarget } from './balanceTarget.js';
 import { CORRECTION_DEFAULTS } from './correctionDefaults.js';
-import { checkTarget, resolveTarget, type ResolvedTarget } from './correctionTarget.js';
+import { judgeTarget, resolveTarget, type ResolvedTarget } from './correctionTarget.js';
 import { lineBands } from './_internal/lineBands.js';
 import { deltaSlots, starSlots } from './equipment.js';
 import type { CompensatorSizing, CompensatorSolution, CorrectionWarning, TargetName } from './correctionResult.js';
@@ -137,7 +137,7 @@ export function sizeBalancingCompensator(board: Board, options?: CompensatorOpti
   const solution = (kind: CompensatorSolution['kind'], state: ProbeState, objective: number, exact: boolean): CompensatorSolution => {
     const equipment = probe.groups(state.kvar);
     const branches = branchSizings(equipment, state.board, state.result);
-    const check = checkTarget(state.result, target, start.result);
+    const check = judgeTarget(state.result, target, start.result);
     const ps = state.result.powerFactor.positiveSequence;
     return {
       kind,
@@ -164,11 +164,11 @@ export function sizeBalancingCompensator(board: Board, options?: CompensatorOpti
   const ideal = solveIdealCompensator(probe, bases, opts.maxIterations);
   if (!ideal.converged) warn('not-converged', compensatorWording.notConverged('ideal', ideal.iterations));
   const targetsMet = (state: ProbeState): TargetName[] => [
-    ...(checkTarget(state.result, target, start.result).met ? (['power-factor'] as const) : []),
-    ...(checkBalance(state.result, opts.balance).met ? (['balance'] as const) : []),
+    ...(judgeTarget(state.result, target, start.result).met ? (['power-factor'] as const) : []),
+    ...(judgeBalance(state.result, opts.balance).met ? (['balance'] as const) : []),
   ];
   const reading = (state: ProbeState) => {
-    const balance = checkBalance(state.result, opts.balance);
+    const balance = judgeBalance(state.result, opts.balance);
     return { positiveSequencePf: state.result.powerFactor.positiveSequence?.pf ?? null, negativeSequenceCurrentPercent: balance.negativeSequencePercent, neutralPercent: balance.neutralPercent };
   };
   // The exact solution's negligible branches are left out here, once, so every table and the build agree.
@@ -199,9 +199,9 @@ export function sizeBalancingCompensator(board: Board, options?: CompensatorOpti
   const idealObjective = leftOut ? compensatorResidual(idealBuilt.state, bases).reduce((sum, r, k) => sum + weights[k]! * r * r, 0) : 0;
   const idealSolution = solution('ideal', idealBuilt.state, idealObjective, ideal.converged && !leftOut);
   const capSolution = solution('capacitor-only', capOnly.state, capOnly.objective, Math.sqrt(capOnly.objective) < EXACT_RESIDUAL);
-  const balanceBefore = checkBalance(start.result, opts.balance);
-  const balanceAfter = checkBalance(capOnly.state.result, opts.balance);
-  const idealBalance = checkBalance(idealBuilt.state.result, opts.balance);
+  const balanceBefore = judgeBalance(start.result, opts.balance);
+  const balanceAfter = judgeBalance(capOnly.state.result, opts.balance);
+  const idealBalance = judgeBalance(idealBuilt.state.result, opts.balance);
   const idealWorks = opts.reactors === 'allowed' && idealSolution.check.met && idealBalance.met && ideal.converged;
   let status: CompensatorSizing['status'] = 'infeasible';
   let recommended: CompensatorSizing['recommended'] = 'capacitor-only';
@@ -209,7 +209,7 @@ export function sizeBalancingCompensator(board: Board, options?: CompensatorOpti
   // Sentences name branches the way the board file does (L1-L2 or A-B).
   const label = labellerOf(start.result.conventions.phaseNames);
   const reactorLabels = idealSolution.reactorBranches.map(label);
-  if (balanceBefore.met && checkTarget(start.result, target).met) status = 'already-meets-target';
+  if (balanceBefore.met && judgeTarget(start.result, target).met) status = 'already-meets-target';
   else if (!(capSolution.check.met && balanceAfter.met) && idealWorks) {
     // Capacitors alone cannot do it; the Steinmetz/Gyugyi solution with its reactors can.
     status = 'meets-target';

@@ -14,7 +14,7 @@ import { abs, type ComplexValue } from '../complex.js';
 import { supplyPathImpedance } from '../network/installationModel.js';
 import { lightLoadSchema, targetSchema, ARRANGEMENTS, type Arrangement, type CapacitanceToleranceSpec, type LightLoadSpec, type TargetSpec } from './correctionSpec.js';
 import { CORRECTION_DEFAULTS, toleranceFractions } from './correctionDefaults.js';
-import { checkTarget, lineTanBounds, resolveTarget, TARGET_SLACK } from './correctionTarget.js';
+import { judgeTarget, lineTanBounds, resolveTarget, TARGET_SLACK } from './correctionTarget.js';
 import { addCorrectionEquipment, type EquipmentGroup } from './equipment.js';
 import { scaleBoardLoads } from './scaleBoardLoads.js';
 import type { CorrectionVerification, CorrectionWarning, LightLoadCheck, MeteringReadings, VoltageRise } from './correctionResult.js';
@@ -156,13 +156,13 @@ export function verifyCorrection(board: Board, options: VerifyCorrectionOptions)
   const after = solveEquipped(corrected, analyseSolution);
   const meteredBefore = judged(board, before);
   const meteredAfter = judged(corrected, after);
-  const check = checkTarget(meteredAfter, target, meteredBefore);
+  const check = judgeTarget(meteredAfter, target, meteredBefore);
   const branches = branchSizings(equipment, corrected, after);
   const atTolerance = (capacitanceFactor: number) => {
     const b = addCorrectionEquipment(board, equipment, { capacitanceFactor });
     // Only the target figures are read at the tolerance ends: not the whole analysis.
     const figures: TargetReadings = meter ? solveMeter(b, meter, solveOptions, readTargetFigures) : solveEquipped(b, readTargetFigures);
-    return checkTarget(figures, target, meteredBefore);
+    return judgeTarget(figures, target, meteredBefore);
   };
   const low = atTolerance(1 - minus);
   const high = atTolerance(1 + plus);
@@ -250,7 +250,7 @@ export function verifyCorrection(board: Board, options: VerifyCorrectionOptions)
     before,
     after,
     check,
-    checkBefore: checkTarget(meteredBefore, target),
+    checkBefore: judgeTarget(meteredBefore, target),
     branches,
     lines: lineComparisons(before, after),
     powerFactor: powerFactors(before, after),

@@ -8,7 +8,7 @@
  * run wherever the schema does and name the field.
  */
 import * as z from 'zod';
-import type { BoardBaseSpec, LoadBaseSpec } from '../board/boardSchema.js';
+import { nameSchema, type BoardBaseSpec, type LoadBaseSpec } from '../board/boardSchema.js';
 import { SPECTRUM_KINDS } from './typicalSpectra.js';
 import { toleranceSchema } from '../correction/correctionSpec.js';
 
@@ -128,7 +128,7 @@ export const harmonicsSectionSchema = z
 /** A bank on one board of an installation: the installed bank's fields and the board it is on. */
 export const installationBankSchema = installedBankSchema
   .extend({
-    board: z.string().min(1).describe('the name of the board the bank is on'),
+    board: nameSchema('the name of the board the bank is on'),
     stepsInService: z
       .array(z.number().int().min(1).max(12))
       .max(12)

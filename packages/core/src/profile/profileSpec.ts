@@ -5,6 +5,8 @@
  * reasons are in profileDefaults.ts.
  */
 import * as z from 'zod';
+import { labelSchema, nameReferenceSchema, nameSchema } from '../board/boardSchema.js';
+import { CURRENCY_MAX_CHARACTERS } from '../board/boardRanges.js';
 
 const positive = z.number().positive();
 const nonNegative = z.number().nonnegative();
@@ -12,11 +14,11 @@ const powerFactor = z.number().gt(0).max(1);
 
 export const scenarioSchema = z
   .strictObject({
-    name: z.string().min(1).describe('scenario name'),
+    name: nameSchema('scenario name'),
     hours: positive.max(8784).optional().describe('hours per year the board spends in this state'),
     weight: positive.optional().describe('relative share of the year (scaled so all weights fill 8760 h); give hours or weight'),
     loads: z
-      .record(z.string().min(1), nonNegative.max(10))
+      .record(nameReferenceSchema('a load or group name'), nonNegative.max(10))
       .describe('load or group name → fraction of its rating in this state (1 = rated)'),
     others: nonNegative.max(10).optional().describe('fraction of rating for loads not named in loads; default 0 (off)'),
   })
@@ -24,7 +26,7 @@ export const scenarioSchema = z
 
 export const tariffSchema = z
   .strictObject({
-    currency: z.string().min(1).max(8).optional().describe('label printed beside charges; default "units"'),
+    currency: labelSchema('label printed beside charges', CURRENCY_MAX_CHARACTERS).optional().describe(`label printed beside charges (at most ${CURRENCY_MAX_CHARACTERS} characters); default "units"`),
     reactive: z
       .strictObject({
         tanPhiAllowance: nonNegative.describe('kvarh allowed free per kWh in the month (tan φ); e.g. 0.4 ≈ PF 0.93'),
@@ -57,9 +59,7 @@ export const profileBankSchema = z
     delaySeconds: nonNegative.max(3600).optional().describe('time a need must persist before a step switches; default 30 s'),
     reconnectSeconds: nonNegative.max(3600).optional().describe('minimum time a step stays off before reconnecting (discharge); default the discharge time of the board\'s practice: 180 s IEC (50 Hz), 60 s North-American (60 Hz)'),
     perPhase: z.boolean().optional().describe('size single-phase steps per phase instead of three-phase steps; default false'),
-    measuredAt: z
-      .string()
-      .min(1)
+    measuredAt: nameSchema('origin or a board name')
       .optional()
       .describe(
         "installation files: where the controller measures: origin (the supply's terminals, where the service cable starts) or a board the bank's board is fed through (at its incomer); default the bank's own board. The correction study's bank (--correction-bank) reads where its target is measured instead (correction.target.measuredAt)",
@@ -81,7 +81,7 @@ export const profileLimitsSchema = z
 export const profileSpecSchema = z
   .strictObject({
     groups: z
-      .record(z.string().min(1), z.array(z.string().min(1)).min(1))
+      .record(nameSchema('group name'), z.array(nameReferenceSchema('a load name')).min(1))
       .optional()
       .describe('named sets of loads that one interval-data column can drive'),
     scenarios: z.array(scenarioSchema).min(1).optional().describe('named load states for a profile without logged data'),

@@ -20,7 +20,7 @@
 import type { Board, BoardLoad } from '../board/boardModel.js';
 import type { ConnectionSpec } from '../board/boardSchema.js';
 import { A_OPERATOR, A_SQUARED, abs, add, complex, conj, div, mul, polar, scale, sub, ZERO, type ComplexValue } from '../complex.js';
-import { sequenceComponents } from '../analysis/symmetricalComponents.js';
+import { fortescueComponents } from '../analysis/symmetricalComponents.js';
 import { MAX_OPTIONS, type AssignmentProblem } from './assignmentProblem.js';
 import { builtInMagnitudeScore, magnitudeScore, type ConditionLayout, type RebalanceObjective } from './rebalanceObjective.js';
 import { connectionChoices, type ResolvedRebalance } from './rebalanceRules.js';
@@ -112,7 +112,7 @@ export function buildAssignmentProblem(tree: RebalanceTree, study: ResolvedRebal
   const wantVoltage = threePhase && study.aim.voltageUnbalance > 0;
   const [ab, ac] = board.sequence === 'ABC' ? [A_OPERATOR, A_SQUARED] : [A_SQUARED, A_OPERATOR];
   const negativeRow = threePhase ? [complex(1 / 3), scale(ac, 1 / 3), scale(ab, 1 / 3)] : [];
-  const emfSeq = threePhase ? sequenceComponents(board.emf as [ComplexValue, ComplexValue, ComplexValue], board.sequence) : null;
+  const emfSeq = threePhase ? fortescueComponents(board.emf as [ComplexValue, ComplexValue, ComplexValue], board.sequence) : null;
   const unit = board.phases.map((_, k) => board.phases.map((__, x) => complex(x === k ? 1 : 0)));
   const ones = board.phases.map(() => complex(1));
   const under = (p: number) => tree.boards.map((_, x) => complex(isUnder(tree, x, p) ? 1 : 0));
@@ -177,7 +177,7 @@ export function buildAssignmentProblem(tree: RebalanceTree, study: ResolvedRebal
     const sumUnder = (p: number, per: readonly ComplexValue[][]) =>
       board.phases.map((_, k) => per.reduce((t, x, b) => (isUnder(tree, b, p) ? add(t, x[k]!) : t), ZERO));
     const positiveInto = (p: number) =>
-      threePhase ? sequenceComponents(sumUnder(p, drawn) as [ComplexValue, ComplexValue, ComplexValue], board.sequence).positive : ZERO;
+      threePhase ? fortescueComponents(sumUnder(p, drawn) as [ComplexValue, ComplexValue, ComplexValue], board.sequence).positive : ZERO;
     for (const p of study.measuredBoards) {
       const perBoard = under(p);
       const lineIdx = board.phases.map((_, k) => rows.push({ weights: unit[k]!, perBoard, condition: c, constant: ZERO }) - 1);

@@ -25,8 +25,8 @@ export type { RebalanceOptions } from './rebalanceInstallation.js';
  * // Studio, 400 V: kiln 6 kW (circuit '1') and kitchen sockets 3 kW ('3') on A-N, lights 1 kW ('5') on B-N, heater 2 kW ('7') on C-N
  * const report = rebalanceBoard(normaliseBoard(parseBoard(studio)), { moveLimit: 2 });
  * report.moves //=> [
- * //   { board: 'Studio', circuit: '1', listPosition: 1, name: 'Kiln', from: 'A-N', to: 'B-N', circuitNumber: { verdict: 'position-changes', implied: null } },
- * //   { board: 'Studio', circuit: '5', listPosition: 3, name: 'Lights', from: 'B-N', to: 'C-N', circuitNumber: { verdict: 'position-changes', implied: null } },
+ * //   { board: 'Studio', circuit: '1', listPosition: 1, name: 'Kiln', from: 'A-N', to: 'B-N', circuitNumber: { verdict: 'position-changes', implied: null, positions: null } },
+ * //   { board: 'Studio', circuit: '5', listPosition: 3, name: 'Lights', from: 'B-N', to: 'C-N', circuitNumber: { verdict: 'position-changes', implied: null, positions: null } },
  * // ]
  * // `circuit` is the file's circuit number as written (null where it gives none), `listPosition` the load's place in the list.
  */

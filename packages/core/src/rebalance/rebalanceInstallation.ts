@@ -10,6 +10,7 @@ import { conventionsOf } from '../board/conventions/boardConventions.js';
 import { labellerOf } from '../board/conventions/phaseNames.js';
 import type { Installation } from '../board/boardModel.js';
 import type { ConnectionSpec } from '../board/boardSchema.js';
+import { NAME_CONTROLS_MESSAGE, NAME_WITHOUT_CONTROLS } from '../board/boardRanges.js';
 import { InputError, inputIssue } from '../errors.js';
 import { parseOptions } from '../_internal/zodIssues.js';
 import { assertFiniteResult } from '../analysis/assertFiniteResult.js';
@@ -54,7 +55,8 @@ const optionsSchema = z.strictObject({
   objective: z.function().optional(),
   profile: z.looseObject({}).optional(),
   loadConditions: z
-    .array(z.strictObject({ name: z.string().min(1), weight: z.number().nonnegative(), factors: z.array(z.strictObject({ re: z.number(), im: z.number() })) }))
+    // Names made from interval times and what peaks there, any length; still no control characters.
+    .array(z.strictObject({ name: z.string().min(1).regex(NAME_WITHOUT_CONTROLS, { message: NAME_CONTROLS_MESSAGE }), weight: z.number().nonnegative(), factors: z.array(z.strictObject({ re: z.number(), im: z.number() })) }))
     .optional(),
 });
 
@@ -386,8 +388,9 @@ export function rebalanceInstallation(installation: Installation, study: unknown
     const to = slot.options[choice[i]!]!;
     if (to !== slot.present) {
       const board = tree.boards[tree.circuits[slot.flat]!.board]!;
-      const circuit = board.loads[slot.loadIndex]!.schedule?.circuit ?? null;
-      moves.push({ board: slot.boardName, circuit, listPosition: slot.loadIndex + 1, name: slot.name, from: slot.present, to, circuitNumber: movedCircuitNumber(board, circuit, to) });
+      const schedule = board.loads[slot.loadIndex]!.schedule;
+      const circuit = schedule?.circuit ?? null;
+      moves.push({ board: slot.boardName, circuit, listPosition: slot.loadIndex + 1, name: slot.name, from: slot.present, to, circuitNumber: movedCircuitNumber(board, circuit, to, schedule?.poles) });
       moveMap.set(slot.flat, to);
     }
   });
@@ -427,7 +430,7 @@ export function rebalanceInstallation(installation: Installation, study: unknown
   if (installation.banksInService?.length)
     notes.push(REBALANCE_NOTES.banksInService(listedBanksInService(installation).map((b) => bankInServiceWords(b))));
   const renumbered = moves.filter((m) => m.circuitNumber?.verdict === 'renumber');
-  if (renumbered.length) notes.push(REBALANCE_NOTES.renumber(renumbered.map((m) => ({ board: tree.boards.length > 1 ? m.board : null, circuit: m.circuit!, name: m.name }))));
+  if (renumbered.length) notes.push(REBALANCE_NOTES.renumber(renumbered.map((m) => ({ board: tree.boards.length > 1 ? m.board : null, circuit: m.circuit!, name: m.name, positions: m.circuitNumber!.positions!.length }))));
   const oneLine = tree.boards[0]!.phases.length === 1;
   if (oneLine) notes.push(REBALANCE_NOTES.oneLine);
   else if (n === 0) notes.push(REBALANCE_NOTES.nothingToMove);

@@ -4,6 +4,7 @@
  * `resolveRebalanceSpec` (rebalanceRules.ts); board-dependent checks there too.
  */
 import * as z from 'zod';
+import { nameReferenceSchema, nameSchema } from '../board/boardSchema.js';
 
 /** The figures a score can weigh. */
 export const AIM_FIGURES = ['largestLine', 'neutral', 'currentUnbalance', 'voltageUnbalance'] as const;
@@ -21,11 +22,11 @@ export const aimSchema = z
   .describe('what to make small: weights of each figure in the score (default largestLine 1, and neutral 1 where the board has a neutral)');
 
 const pinEntry = z.union([
-  z.string().min(1).describe('a circuit name (unique in the file): it stays where it is'),
+  nameReferenceSchema('a circuit name (unique in the file): it stays where it is'),
   z
     .strictObject({
-      circuit: z.string().min(1).describe('circuit name'),
-      board: z.string().min(1).optional().describe('the board it is on (needed where several boards have a circuit of that name)'),
+      circuit: nameReferenceSchema('circuit name'),
+      board: nameSchema('board name').optional().describe('the board it is on (needed where several boards have a circuit of that name)'),
       on: z.enum(['A-N', 'B-N', 'C-N', 'A-B', 'B-C', 'C-A']).optional().describe('the connection it must end on; default where it is now'),
     })
     .describe('a circuit that stays, or must end on the given connection (a forced move when it is elsewhere now)'),
@@ -38,11 +39,11 @@ const lineCapacity = z.union([
 
 export const loadConditionSchema = z
   .strictObject({
-    name: z.string().min(1).describe('what the condition is, e.g. "evening peak"'),
+    name: nameSchema('what the condition is, e.g. "evening peak"'),
     weight: z.number().positive().optional().describe('weight in the weighted mean of conditions; default 1'),
     factor: z.number().min(0).optional().describe('fraction of every circuit running; default 1'),
     circuits: z
-      .record(z.string(), z.number().min(0))
+      .record(nameReferenceSchema('a circuit name, or "board/circuit"'), z.number().min(0))
       .optional()
       .describe('per-circuit fractions that override factor (0 = off; an exporting circuit keeps its sign); key a circuit name, or "board/circuit" where the name is on several boards'),
   })
@@ -69,13 +70,11 @@ export const rebalanceSpecSchema = z
       .optional()
       .describe('load conditions, or "scenarios": the profile section\'s scenarios, weighted by their hours; default one: every circuit at its rating'),
     boards: z
-      .array(z.string().min(1))
+      .array(nameSchema('board name'))
       .min(1)
       .optional()
       .describe('installations: the boards whose circuits may move; default every board'),
-    measureAt: z
-      .string()
-      .min(1)
+    measureAt: nameSchema('"each", "main" or a board name')
       .optional()
       .describe('installations: where the score is measured: "each" (every board\'s incomer, scores added), "main" (the main incomer) or a board name (its incomer and bus voltage); default each'),
   })

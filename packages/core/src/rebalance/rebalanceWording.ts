@@ -43,9 +43,16 @@ export const REBALANCE_CAUTIONS: readonly string[] = rebalanceCautions(true);
 export const REBALANCE_NOTES = {
   banksInService: (banks: readonly string[]) =>
     `Capacitor banks in service in every solve, now and after, ${BANKS_IN_SERVICE_BASIS}: ${banks.join('; ')}. They stay as they are: nothing of a three-phase bank moves.`,
-  /** Moved circuits whose number the usual North-American numbering ties to the line they leave. */
-  renumber: (moved: readonly { board: string | null; circuit: string; name: string }[]) =>
-    `${moved.map((m) => `"${m.name}"${m.board ? ` on "${m.board}"` : ''} (circuit ${m.circuit})`).join(', ')} ${moved.length === 1 ? 'takes a breaker position' : 'take breaker positions'} on ${moved.length === 1 ? 'its new line' : 'their new lines'}: the usual panel numbering ties each circuit number to a line, so ${moved.length === 1 ? 'it needs the number' : 'they need the numbers'} of the new position${moved.length === 1 ? '' : 's'}. A file rewritten with these moves keeps the old number${moved.length === 1 ? '' : 's'}; re-assign ${moved.length === 1 ? 'it' : 'them'} there and on the circuit chart.`,
+  /**
+   * Moved circuits whose number the usual North-American numbering ties to the line they leave; `positions`
+   * counts the breaker's (a 2-pole breaker's two positions each need a new number).
+   */
+  renumber: (moved: readonly { board: string | null; circuit: string; name: string; positions: number }[]) => {
+    const one = moved.length === 1;
+    const numbers = !one || moved[0]!.positions > 1;
+    const positionWord = (several: boolean) => (several ? 'positions' : 'position');
+    return `${moved.map((m) => `"${m.name}"${m.board ? ` on "${m.board}"` : ''} (circuit ${m.circuit}${m.positions > 1 ? `, ${m.positions} poles` : ''})`).join(', ')} ${one ? (numbers ? 'takes breaker positions' : 'takes a breaker position') : 'take breaker positions'} on ${one ? `its new line${moved[0]!.positions > 1 ? 's' : ''}` : 'their new lines'}: the usual panel numbering ties each circuit number to a line, so ${one ? 'it needs' : 'they need'} the number${numbers ? 's' : ''} of the new ${positionWord(numbers)}. A file rewritten with these moves keeps the old number${numbers ? 's' : ''}; re-assign ${numbers ? 'them' : 'it'} there and on the circuit chart.`;
+  },
   oneLine: 'A single-phase supply has one line: every circuit is on it and there is no other to move one to, so there is nothing to rebalance.',
   /** Loads with harmonic spectra: the neutral figures are the fundamental's; the rms from the harmonic study, where it ran. */
   harmonicNeutral: (

@@ -3,12 +3,17 @@
  * the HTML report and the installation report.
  */
 import type { BoardResult } from '../analysis/boardResult.js';
+import { argumentIssueError, checkNumberArgument } from '../_internal/argumentChecks.js';
 
 /** A voltage to 0.1 V without a trailing ".0": 230, 230.9, 120. */
 const volts = (v: number) => String(Math.round(v * 10) / 10);
 
 /** "400 V line-to-line, 230 V line-to-neutral", or "230 V" on a single-phase 2-wire board. */
 export function nominalVoltageWords(board: BoardResult['board']): string {
+  // NaN wrote "NaN V line-to-line".
+  if (typeof board !== 'object' || board === null) throw argumentIssueError('board', "a solved board's board figures (result.board)", board);
+  checkNumberArgument(board.nominalLineToNeutralV, 'board.nominalLineToNeutralV', 'a nominal voltage in V, a finite number above 0', (x) => x > 0);
+  if (board.nominalLineToLineV !== null) checkNumberArgument(board.nominalLineToLineV, 'board.nominalLineToLineV', 'a nominal voltage in V, a finite number above 0, or null', (x) => x > 0);
   return board.nominalLineToLineV !== null ? `${volts(board.nominalLineToLineV)} V line-to-line, ${volts(board.nominalLineToNeutralV)} V line-to-neutral` : `${volts(board.nominalLineToNeutralV)} V`;
 }
 

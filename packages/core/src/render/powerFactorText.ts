@@ -10,7 +10,10 @@ import { fixed } from './svgText.js';
 import { argumentIssueError, checkNumberArgument } from '../_internal/argumentChecks.js';
 
 /** True when the power, as printed to 2 decimals, flows back toward the supply. */
-export const isExportKW = (kW: number): boolean => fixed(kW, 2).startsWith('-');
+export function isExportKW(kW: number): boolean {
+  if (!Number.isFinite(kW)) checkNumberArgument(kW, 'kW', 'an active power in kW, a finite number (negative when exported)');
+  return fixed(kW, 2).startsWith('-');
+}
 
 export function powerFactorText(r: Pick<PowerReading, 'pf' | 'sense' | 'kVA' | 'kW' | 'kvar'>, none = '-'): string {
   if (typeof r !== 'object' || r === null) throw argumentIssueError('reading', 'a power reading { pf, sense, kVA, kW, kvar } of a solved board', r);
@@ -33,6 +36,8 @@ export function powerFactorText(r: Pick<PowerReading, 'pf' | 'sense' | 'kVA' | '
  */
 export function signedPfText(pf: number | null, none = '-'): string {
   if (pf === null) return none;
+  // NaN printed "NaN"; a board PF is P/S, from -1 to 1.
+  if (!(Math.abs(pf) <= 1 + 1e-9)) checkNumberArgument(pf, 'pf', 'a signed power factor from -1 to 1 (negative when the board exports), or null where no power flows', (x) => Math.abs(x) <= 1 + 1e-9);
   const shown = fixed(Math.abs(pf), 3);
   return pf < 0 && fixed(pf, 3) !== '0.000' ? `${shown} export` : shown;
 }
@@ -42,6 +47,8 @@ export function signedPfText(pf: number | null, none = '-'): string {
  * taken at pf 1 is a resistive load, an exporter (a generator, PV) simply runs at unity power factor.
  */
 export function assumedPfNote(assumedKW: readonly number[]): string {
+  if (!Array.isArray(assumedKW) || assumedKW.length === 0) throw argumentIssueError('assumedKW', 'the kW of the circuits given without a pf, at least one', assumedKW);
+  assumedKW.forEach((kW, k) => checkNumberArgument(kW, `assumedKW[${k}]`, 'an active power in kW, a finite number'));
   const exporters = assumedKW.filter((kW) => kW < 0).length;
   const why = exporters === 0 ? ' (a resistive load)' : exporters === assumedKW.length ? ' (exporting at unity power factor)' : ' (a resistive load; where it exports, a source at unity power factor)';
   return `*: pf not given in the file, taken as 1${why}.`;

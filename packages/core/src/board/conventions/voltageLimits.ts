@@ -7,7 +7,7 @@
  * shows "95.0 %" beside a verdict that 95 % is outside a −5 % limit.
  */
 import type { Region } from './region.js';
-import { checkNumberArgument } from '../../_internal/argumentChecks.js';
+import { argumentIssueError, checkNumberArgument } from '../../_internal/argumentChecks.js';
 
 export interface VoltageLimitPreset {
   /** Allowed fall below nominal, %. */
@@ -93,12 +93,33 @@ export function judgeVoltage(limits: VoltageLimits, percent: number): 'under' | 
  * for it (the table's allowed volts and the limits line alike), so a 208Y/120 board whose nominal
  * is 208/√3 = 120.1 V reads 114.1–126.1 V in both places.
  */
+/**
+ * The limits a band is written from: each percentage finite and in range, or an InputError naming it
+ * (NaN printed "NaN–NaN V" and "±undefined %"). Reports ask once per board, never per interval.
+ */
+function checkBandLimits(limits: unknown): asserts limits is Pick<VoltageLimits, 'underPercent' | 'overPercent'> {
+  if (typeof limits !== 'object' || limits === null) throw argumentIssueError('limits', 'voltage limits { underPercent, overPercent, ... }, e.g. a preset of VOLTAGE_LIMIT_PRESETS', limits);
+  const l = limits as Record<string, unknown>;
+  checkNumberArgument(l.underPercent, 'limits.underPercent', 'a finite percentage below nominal, from 0 to 100', (x) => x >= 0 && x <= 100);
+  checkNumberArgument(l.overPercent, 'limits.overPercent', 'a finite percentage above nominal, 0 or more', (x) => x >= 0);
+}
+
+const NOMINAL_EXPECTED = 'a nominal voltage in V, a finite number above 0';
+
+/** @throws {InputError} naming `limits.underPercent`, `limits.overPercent` or `nominalV` when one is not a finite figure in range */
 export function bandVolts(limits: Pick<VoltageLimits, 'underPercent' | 'overPercent'>, nominalV: number): { readonly low: string; readonly high: string } {
+  checkBandLimits(limits);
+  checkNumberArgument(nominalV, 'nominalV', NOMINAL_EXPECTED, (x) => x > 0);
   return { low: ((nominalV * (100 - limits.underPercent)) / 100).toFixed(1), high: ((nominalV * (100 + limits.overPercent)) / 100).toFixed(1) };
 }
 
 /** "120.1 V: 114.1–126.1 V line-to-neutral; 208.0 V: 197.6–218.4 V line-to-line": the band at a board's nominal voltages. */
+/** @throws {InputError} naming the limit or the nominal voltage that is not a finite figure in range (as judgedNominals gives them: a number or null) */
 export function bandVoltsWords(limits: VoltageLimits, nominal: { readonly lineToNeutralV: number | null; readonly lineToLineV: number | null }): string {
+  checkBandLimits(limits);
+  if (typeof nominal !== 'object' || nominal === null) throw argumentIssueError('nominal', '{ lineToNeutralV, lineToLineV }, each a voltage in V or null, e.g. from judgedNominals(result)', nominal);
+  for (const key of ['lineToNeutralV', 'lineToLineV'] as const)
+    if (nominal[key] !== null) checkNumberArgument(nominal[key], `nominal.${key}`, `${NOMINAL_EXPECTED}, or null`, (x) => x > 0);
   const at = (v: number, what: string) => {
     const { low, high } = bandVolts(limits, v);
     return `${v.toFixed(1)} V: ${low}–${high} V ${what}`;
@@ -109,5 +130,7 @@ export function bandVoltsWords(limits: VoltageLimits, nominal: { readonly lineTo
 }
 
 /** "±5 %" or "−6/+10 %": the band in a few characters, for tables and verdicts. */
-export const bandWords = (limits: VoltageLimits): string =>
-  limits.underPercent === limits.overPercent ? `±${limits.overPercent} %` : `−${limits.underPercent}/+${limits.overPercent} %`;
+export function bandWords(limits: VoltageLimits): string {
+  checkBandLimits(limits);
+  return limits.underPercent === limits.overPercent ? `±${limits.overPercent} %` : `−${limits.underPercent}/+${limits.overPercent} %`;
+}

@@ -9,7 +9,8 @@
  * 415/240 is 1.729, 400/230 is 1.739), an impossible pair (400/200 on a star) is not.
  */
 import type { SystemKind } from '../boardSchema.js';
-import { PHYSICAL_RANGES } from '../boardRanges.js';
+import { PHYSICAL_RANGES, SYSTEMS } from '../boardRanges.js';
+import { argumentIssueError, checkNumberArgument } from '../../_internal/argumentChecks.js';
 
 /** Relative tolerance on the ratio of the two figures: rounded nominal values stay within 1 %; 2 % leaves room (common practice, no source). */
 export const NOTATION_RATIO_TOLERANCE = 0.02;
@@ -102,6 +103,11 @@ export function nominalOfNotation(n: VoltageNotation, system: SystemKind): { ln:
  * back gives the same figures (rounded to 0.1 V).
  */
 export function writeVoltageNotation(system: SystemKind, lineToNeutralV: number, lineToLineV: number | null, region: 'iec' | 'north-america'): string {
+  // NaN wrote "NaN/NaN V"; an unknown system or region fell through to a star's notation.
+  if (!(SYSTEMS as readonly unknown[]).includes(system)) throw argumentIssueError('system', `one of ${SYSTEMS.map((x) => `"${x}"`).join(', ')}`, system);
+  checkNumberArgument(lineToNeutralV, 'lineToNeutralV', 'a voltage in V, a finite number above 0', (x) => x > 0);
+  if (lineToLineV !== null) checkNumberArgument(lineToLineV, 'lineToLineV', 'a voltage in V, a finite number above 0, or null', (x) => x > 0);
+  if (region !== 'iec' && region !== 'north-america') throw argumentIssueError('region', '"iec" or "north-america"', region);
   const v = (x: number) => String(Math.round(x * 10) / 10);
   if (lineToLineV === null || system === 'single-phase') return `${v(lineToNeutralV)} V`;
   if (system === 'three-phase-3wire') return `${v(lineToLineV)} V`;

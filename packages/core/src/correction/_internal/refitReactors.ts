@@ -13,8 +13,8 @@
  * residual.
  */
 import type { Board } from '../../board/boardModel.js';
-import { checkTarget, type ResolvedTarget } from '../correctionTarget.js';
-import { checkBalance, type BalanceTarget } from '../balanceTarget.js';
+import { judgeTarget, type ResolvedTarget } from '../correctionTarget.js';
+import { judgeBalance, type BalanceTarget } from '../balanceTarget.js';
 import type { SolveOptions } from '../../network/solveNetwork.js';
 import type { BankSelection, BranchSizing, ReactorResizing } from '../correctionResult.js';
 import { kvarFromSusceptance, susceptanceFromKvar, addCorrectionEquipment, type BranchSlot, type EquipmentGroup } from '../equipment.js';
@@ -119,7 +119,7 @@ export function refitReactors(board: Board, built: readonly EquipmentGroup[], in
   const weights = residualWeights(bases, input.weights);
   const objectiveOf = (state: ProbeState) => compensatorResidual(state, bases).reduce((s, r, k) => s + weights[k]! * r * r, 0);
   // Targets met (the PF target, the balance target): more is better, then the lower residual.
-  const targetsMet = (state: ProbeState) => Number(checkTarget(state.result, input.target, start.result).met) + Number(checkBalance(state.result, input.balance).met);
+  const targetsMet = (state: ProbeState) => Number(judgeTarget(state.result, input.target, start.result).met) + Number(judgeBalance(state.result, input.balance).met);
   const sizedState = probe.at(sizedKvar);
   const objectiveSized = objectiveOf(sizedState);
   const metSized = targetsMet(sizedState);

@@ -5,7 +5,7 @@
 import type { Board } from '../../board/boardModel.js';
 import { arrangementNames } from '../correctionWording.js';
 import type { SolveOptions } from '../../network/solveNetwork.js';
-import { checkTarget, type BoardTargetDefinition, type ResolvedTarget } from '../correctionTarget.js';
+import { judgeTarget, type BoardTargetDefinition, type ResolvedTarget } from '../correctionTarget.js';
 import { lineBands } from './lineBands.js';
 import type { BankSizing } from '../correctionResult.js';
 import { deltaSlots, susceptanceFromKvar, type BranchSlot } from '../equipment.js';
@@ -46,7 +46,7 @@ export function sizeBank(board: Board, arrangement: BankSizing['arrangement'], s
   const loop = floating ? { ...options.loop, minShare: MIN_DELTA_SHARE } : options.loop;
   const zeros = slots.map(() => 0);
   const start = probe.at(zeros);
-  const checkBefore = checkTarget(start.metered, target);
+  const checkBefore = judgeTarget(start.metered, target);
   const limitBands = lineBands(target, start, 'limit');
 
   const perLineTarget = target.definition === 'per-line';
@@ -67,7 +67,7 @@ export function sizeBank(board: Board, arrangement: BankSizing['arrangement'], s
     const state = floating ? built.at(toBuilt(sized.kvar)) : sized;
     const limitKvar = sizedLimit && toBuilt(sizedLimit);
     const equipment = built.groups(state.kvar);
-    const check = checkTarget(state.metered, target, start.metered);
+    const check = judgeTarget(state.metered, target, start.metered);
     const reasons = forced?.reasons ?? [];
     const status = forced?.status ?? (check.met ? 'meets-target' : 'infeasible');
     if (!forced && !check.met) {
