@@ -13,6 +13,7 @@
 import * as z from 'zod';
 import { groupDigits } from '../_internal/groupDigits.js';
 import { conventionsSchema } from './conventions/conventionsSchema.js';
+import { nameSchema, readableText } from './nameSchemas.js';
 import { NOTATION_ACCEPTED, readVoltageNotation } from './conventions/voltageNotation.js';
 import {
   CIRCUIT_NUMBER,
@@ -25,11 +26,7 @@ import {
   FREQUENCIES_HZ,
   LOAD_MODELS,
   NAME_MAX_CHARACTERS,
-  NAME_REFERENCE_MAX_CHARACTERS,
   CIRCUIT_MAX_CHARACTERS,
-  NAME_CONTROLS_MESSAGE,
-  NAME_VISIBLE,
-  NAME_WITHOUT_CONTROLS,
   NOTATION_MAX_CHARS,
   PARALLEL_CONDUCTORS,
   PF_SENSES,
@@ -55,28 +52,7 @@ export function within(range: PhysicalRange): z.ZodNumber {
   return (above ? z.number().gt(min, { message: text }) : z.number().min(min, { message: text })).max(max, { message: text });
 }
 
-/** Text a person reads as written: some visible character, no controls or direction overrides, at most `maxCharacters`. */
-const readableText = (maxCharacters: number) =>
-  z
-    .string()
-    .min(1)
-    .max(maxCharacters)
-    // An empty name is min(1)'s to report; this catches names of spaces only.
-    .regex(NAME_VISIBLE, { message: 'a name with at least one visible character' })
-    .regex(NAME_WITHOUT_CONTROLS, { message: NAME_CONTROLS_MESSAGE });
-
-/** A board, installation or circuit name: some visible text, short enough to head a table row. */
-export const nameSchema = (what: string) => readableText(NAME_MAX_CHARACTERS).describe(`${what} (at most ${NAME_MAX_CHARACTERS} characters)`);
-
-/**
- * A name a study section gives or refers to (a scenario, a group, a condition, a board or load named
- * again): the rule of a load's name, so no name a report prints holds a control or direction override.
- * A reference to a load may be written "<board>/<load>" or "<board>//<load>", hence the longer limit.
- */
-export const nameReferenceSchema = (what: string) => readableText(NAME_REFERENCE_MAX_CHARACTERS).describe(what);
-
-/** A short label printed as written (a currency beside charges): the name rule, at most `maxCharacters`. */
-export const labelSchema = (what: string, maxCharacters: number) => readableText(maxCharacters).describe(what);
+export { labelSchema, nameReferenceSchema, nameSchema } from './nameSchemas.js';
 
 const impedanceOf = (r: PhysicalRange, x: PhysicalRange) =>
   z

@@ -5,7 +5,7 @@
  * `correctionDefaults.ts`, board-dependent rules in `correctionRules.ts`.
  */
 import * as z from 'zod';
-import { nameReferenceSchema, nameSchema } from '../board/boardSchema.js';
+import { nameReferenceSchema, nameSchema } from '../board/nameSchemas.js';
 
 const powerFactor = z.number().gt(0).max(1);
 const percent = z.number().nonnegative();

@@ -8,7 +8,8 @@
  * run wherever the schema does and name the field.
  */
 import * as z from 'zod';
-import { nameSchema, type BoardBaseSpec, type LoadBaseSpec } from '../board/boardSchema.js';
+import type { BoardBaseSpec, LoadBaseSpec } from '../board/boardSchema.js';
+import { nameSchema } from '../board/nameSchemas.js';
 import { SPECTRUM_KINDS } from './typicalSpectra.js';
 import { toleranceSchema } from '../correction/correctionSpec.js';
 

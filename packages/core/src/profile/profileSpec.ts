@@ -5,7 +5,7 @@
  * reasons are in profileDefaults.ts.
  */
 import * as z from 'zod';
-import { labelSchema, nameReferenceSchema, nameSchema } from '../board/boardSchema.js';
+import { labelSchema, nameReferenceSchema, nameSchema } from '../board/nameSchemas.js';
 import { CURRENCY_MAX_CHARACTERS } from '../board/boardRanges.js';
 
 const positive = z.number().positive();

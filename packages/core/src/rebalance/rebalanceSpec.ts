@@ -4,7 +4,7 @@
  * `resolveRebalanceSpec` (rebalanceRules.ts); board-dependent checks there too.
  */
 import * as z from 'zod';
-import { nameReferenceSchema, nameSchema } from '../board/boardSchema.js';
+import { nameReferenceSchema, nameSchema } from '../board/nameSchemas.js';
 
 /** The figures a score can weigh. */
 export const AIM_FIGURES = ['largestLine', 'neutral', 'currentUnbalance', 'voltageUnbalance'] as const;
