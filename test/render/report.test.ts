@@ -66,7 +66,7 @@ describe('board report', () => {
       return block.kind === 'table' ? block.rows.map((r) => r[0]!) : [];
     };
     expect(standards('harbour-cottages.yaml')).toEqual(['IEEE Std 1459-2010']);
-    expect(standards('corner-bakery.yaml')).toContain('NEMA MG 1');
+    expect(standards('corner-bakery.yaml')).toContain('NEMA MG 1 / ANSI C84.1 Annex D');
     expect(standards('riverside-cold-store.yaml')).toContain('IEC 60831-1');
   });
 

@@ -248,7 +248,7 @@ function checksBlock(v: CorrectionVerification, detuned = false): string {
   );
   const vr = v.voltageRise;
   out.push(
-    `steady voltage rise: ${vr.estimatePercent === null ? 'ideal source (none)' : `≈ Qc/S_sc = ${fixed(vr.capacitorKvar, 1)} kvar / ${fixed(vr.shortCircuitKVA ?? 0, 0)} kVA = ${fixed(vr.estimatePercent, 2)} %`}; solved ${fixed(vr.solvedPercent, 2)} %; flag above ${vr.limitPercent} %${vr.flagged ? '  ← FLAGGED' : ''}`,
+    `steady voltage rise: ${vr.estimatePercent === null ? 'ideal source (none)' : `≈ Qc/S_sc = ${fixed(vr.capacitorKvar, 1)} kvar (at the corrected board's voltage) / ${fixed(vr.shortCircuitKVA ?? 0, 0)} kVA = ${fixed(vr.estimatePercent, 2)} %`}; solved ${fixed(vr.solvedPercent, 2)} %; flag above ${vr.limitPercent} %${vr.flagged ? '  ← FLAGGED' : ''}`,
   );
   out.push(
     v.resonanceOrder === null

@@ -276,7 +276,10 @@ export function analyseSolution(solved: NetworkSolution): BoardResult {
   const feederResistance = board.hasNeutral ? { lines: (board.lineImpedances ?? board.phases.map(() => board.lineImpedance)).map((z) => z.re), neutral: board.neutralImpedance.re } : null;
   const warnings = boardWarnings({ belowThreshold, phases, neutral, unbalance, loads, lineRatingsA: board.phases.map((_, k) => lineRatingOf(board, k)), transformer, sourceUnits, limits, label, lineToLine, hasNeutral: board.hasNeutral, region: conventions.region, feederResistance, ...(board.feederUnequalLengths ? { feederLengths: board.feederUnequalLengths } : {}) });
   const voltageCheck = checkVoltages({ limits, phases, lineToLine, hasNeutral: board.hasNeutral, loads, label });
-  const cautions = warnings.some((w) => w.code.startsWith('neutral')) ? [NEUTRAL_CAUTION, GENERAL_CAUTION] : [GENERAL_CAUTION];
+  // On a single-phase 2-wire board the neutral carries the line's current, which the line's breaker protects,
+  // unless the neutral is smaller than the line: only then can it overheat with nothing tripping.
+  const singlePhaseNeutralGuarded = board.phases.length === 1 && (board.neutralRatingA === null || lineRatingOf(board, 0) === null || board.neutralRatingA >= lineRatingOf(board, 0)!);
+  const cautions = !singlePhaseNeutralGuarded && warnings.some((w) => w.code.startsWith('neutral')) ? [NEUTRAL_CAUTION, GENERAL_CAUTION] : [GENERAL_CAUTION];
   return {
     board: {
       name: board.name,

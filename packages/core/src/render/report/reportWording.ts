@@ -48,7 +48,7 @@ export const BOARD_STANDARDS: readonly StandardReference[] = [
 export const THREE_PHASE_STANDARDS: readonly StandardReference[] = [
   { name: 'C. L. Fortescue (1918), symmetrical components', use: 'zero-, positive- and negative-sequence voltages and currents' },
   { name: 'IEC 61000-4-30 / IEC 61000-2-2', use: 'voltage unbalance factor |V2|/|V1|' },
-  { name: 'NEMA MG 1', use: 'line-voltage unbalance rate and the derating of three-phase motors' },
+  { name: 'NEMA MG 1 / ANSI C84.1 Annex D', use: 'line-voltage unbalance rate (the largest deviation of a line-to-line voltage from the average of the three): the derating of three-phase motors, and the North-American unbalance limit' },
   { name: 'IEEE phase-voltage unbalance rate (P. Pillay, M. Manyage, "Definitions of voltage unbalance")', use: 'unbalance of the line-to-neutral voltages' },
 ];
 
