@@ -287,7 +287,7 @@ export type { VoltageUnbalanceLimit } from './board/conventions/unbalanceLimits.
 export { VOLTAGE_UNBALANCE_LIMITS, unbalanceFigure } from './board/conventions/unbalanceLimits.js';
 export { judgedNominals } from './analysis/voltageCheck.js';
 export { judgedNominalOf, STANDARD_STAR_PAIRS } from './board/nominalVoltages.js';
-export { nominalVoltageWords, sourceHeldLine, sourceVoltageWords } from './render/nominalVoltageWords.js';
+export { nominalVoltageWords, nonStandardNominalNote, sourceHeldLine, sourceVoltageWords } from './render/nominalVoltageWords.js';
 export type { Region, RegionBasis } from './board/conventions/region.js';
 export { inferRegion } from './board/conventions/region.js';
 export type { BoardConventions } from './board/conventions/boardConventions.js';

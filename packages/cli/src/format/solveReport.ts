@@ -1,5 +1,5 @@
 /** BoardResult → the human-readable report of `trivar solve`. */
-import { bandVoltsWords, nominalVoltageWords, sourceHeldLine, bandWords, judgedNominals, labelIn, regionWords, signedPfText, assumedPfNote, sourceUnitsWords, type BoardResult } from '@trivar/core';
+import { bandVoltsWords, nominalVoltageWords, nonStandardNominalNote, sourceHeldLine, bandWords, judgedNominals, labelIn, regionWords, signedPfText, assumedPfNote, sourceUnitsWords, type BoardResult } from '@trivar/core';
 import { fixed, renderTable, renderTableWithin, section } from './textTable.js';
 import { REPORT_WIDTH, wrapText } from './wrapText.js';
 import { exportSentence, isExport, pfCell, varWords } from './powerFlowWords.js';
@@ -295,7 +295,13 @@ export function renderSolveReport(r: BoardResult): string {
     section('Power balance') + powerBlock(r),
   ];
   const limits = r.voltageCheck.limits;
-  parts.push(section('Voltage limits') + wrapText(voltageVerdictLine(r), '  ') + `\n${wrapText(`on this board ${bandVoltsWords(limits, judgedNominals(r))}`, '  ')}\n${wrapText(limits.source, '  (', '   ', REPORT_WIDTH - 1)})`);
+  const nonStandard = nonStandardNominalNote(r.board);
+  parts.push(
+    section('Voltage limits') +
+      wrapText(voltageVerdictLine(r), '  ') +
+      `\n${wrapText(`on this board ${bandVoltsWords(limits, judgedNominals(r))}`, '  ')}\n${wrapText(limits.source, '  (', '   ', REPORT_WIDTH - 1)})` +
+      (nonStandard ? `\n${wrapText(nonStandard, '  ! ', '    ')}` : ''),
+  );
   if (r.openNeutral) parts.push(section('If the neutral conductor broke') + openNeutralBlock(r.openNeutral, labeller(r), wordsOf(r).sourceNeutralPoint));
   parts.push(section('Warnings') + (r.warnings.length ? r.warnings.map((w) => wrapText(w.message, '  ! ')).join('\n') : '  none'));
   parts.push(section('Notes') + r.cautions.map((c) => wrapText(c, '  * ')).join('\n'));

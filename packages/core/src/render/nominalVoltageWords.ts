@@ -3,6 +3,7 @@
  * the HTML report and the installation report.
  */
 import type { BoardResult } from '../analysis/boardResult.js';
+import { STANDARD_STAR_PAIRS } from '../board/nominalVoltages.js';
 import { argumentIssueError, checkNumberArgument } from '../_internal/argumentChecks.js';
 
 /** A voltage to 0.1 V without a trailing ".0": 230, 230.9, 120. */
@@ -38,3 +39,16 @@ const heldWords = (s: NonNullable<BoardResult['board']['sourceNominal']>) =>
   s.lineToLineV === null ? `${volts(s.lineToNeutralV)} V` : `${volts(s.lineToNeutralV)} V line-to-neutral, ${volts(s.lineToLineV)} V line-to-line`;
 
 const nominalPairWords = (b: BoardResult['board']) => (b.nominalLineToLineV === null ? `${volts(b.nominalLineToNeutralV)} V` : `${volts(b.nominalLineToNeutralV)}/${volts(b.nominalLineToLineV)} V`);
+
+/**
+ * A note where a star system's nominal voltages are none of IEC 60038's pairs (410 V, say, a
+ * transformer's no-load voltage): the limits are then taken at the figures given, not at the system
+ * nominal a standard's band is written for. Null on a standard pair and on other systems.
+ */
+export function nonStandardNominalNote(board: BoardResult['board']): string | null {
+  if (board.system !== 'three-phase-4wire' || board.nominalLineToLineV === null) return null;
+  const { nominalLineToNeutralV: ln, nominalLineToLineV: ll } = board;
+  if (STANDARD_STAR_PAIRS.some(([n, l]) => n === ln || l === ll)) return null;
+  const pairs = STANDARD_STAR_PAIRS.filter(([n]) => n !== 220 && n !== 240 && n !== 380).map(([n, l]) => `${n}/${l}`).join(', ');
+  return `${volts(ll)} V is not a nominal voltage of IEC 60038 (${pairs} V): the limits are taken at the figures given. Where it is what the source holds with no load, give the system's nominal as the voltage and the source's figure per phase under supply.emf`;
+}

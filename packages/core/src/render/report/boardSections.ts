@@ -21,7 +21,7 @@ import { judgedNominals } from '../../analysis/voltageCheck.js';
 import { renderPhasorDiagram } from '../renderPhasorDiagram.js';
 import { renderSequenceDiagram } from '../renderSequenceDiagram.js';
 import type { ReportBlock, ReportSection } from './reportDocument.js';
-import { nominalVoltageWords, sourceVoltageWords } from '../nominalVoltageWords.js';
+import { nominalVoltageWords, nonStandardNominalNote, sourceVoltageWords } from '../nominalVoltageWords.js';
 
 const SYSTEM_WORDS: Readonly<Record<string, string>> = {
   'three-phase-4wire': 'three-phase 4-wire (lines and neutral)',
@@ -157,7 +157,8 @@ export interface VoltageBand {
 /** The band of the board's own voltage limits (`conventions.voltageLimits`), which its warnings and verdict use. */
 export function bandOf(result: BoardResult): VoltageBand {
   const l = result.voltageCheck.limits;
-  return { lowPercent: -l.underPercent, highPercent: l.overPercent, source: `${bandWords(l)} of nominal (${l.preset}), on this board ${bandVoltsWords(l, judgedNominals(result))}: ${l.source}` };
+  const nonStandard = nonStandardNominalNote(result.board);
+  return { lowPercent: -l.underPercent, highPercent: l.overPercent, source: `${bandWords(l)} of nominal (${l.preset}), on this board ${bandVoltsWords(l, judgedNominals(result))}: ${l.source}${nonStandard ? `. ${nonStandard}` : ''}` };
 }
 
 /** The EN 50160 low-voltage supply band (±10 %), the IEC default. */
