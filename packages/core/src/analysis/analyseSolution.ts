@@ -278,7 +278,9 @@ export function analyseSolution(solved: NetworkSolution): BoardResult {
   const voltageCheck = checkVoltages({ limits, phases, lineToLine, hasNeutral: board.hasNeutral, loads, label });
   // On a single-phase 2-wire board the neutral carries the line's current, which the line's breaker protects,
   // unless the neutral is smaller than the line: only then can it overheat with nothing tripping.
-  const singlePhaseNeutralGuarded = board.phases.length === 1 && (board.neutralRatingA === null || lineRatingOf(board, 0) === null || board.neutralRatingA >= lineRatingOf(board, 0)!);
+  const lineRatingA = lineRatingOf(board, 0);
+  const singlePhaseNeutralGuarded = board.phases.length === 1 && (board.neutralRatingA === null || lineRatingA === null || board.neutralRatingA >= lineRatingA);
+  const nominal = judgedNominalOf(board);
   const cautions = !singlePhaseNeutralGuarded && warnings.some((w) => w.code.startsWith('neutral')) ? [NEUTRAL_CAUTION, GENERAL_CAUTION] : [GENERAL_CAUTION];
   return {
     board: {
@@ -286,8 +288,8 @@ export function analyseSolution(solved: NetworkSolution): BoardResult {
       system: board.system,
       sequence: board.sequence,
       frequencyHz: board.frequencyHz,
-      nominalLineToNeutralV: judgedNominalOf(board).ln,
-      nominalLineToLineV: judgedNominalOf(board).ll,
+      nominalLineToNeutralV: nominal.ln,
+      nominalLineToLineV: nominal.ll,
       ...(board.systemNominal ? { sourceNominal: { lineToNeutralV: board.nominalLineToNeutralV, lineToLineV: board.nominalLineToLineV } } : {}),
       neutralOpen: board.neutralOpen,
       ...(board.withoutNeutral ? { withoutNeutral: true as const } : {}),

@@ -1,7 +1,8 @@
 /**
  * A supply's nominal line-to-neutral and line-to-line voltages, from its notation or its figures:
  * what the solver's model is built on (normaliseBoard.ts) and what the rules judge a load's draw at
- * (boardRules.ts). NaN where the figure is missing: the voltage rules report that.
+ * (boardRules.ts), NaN where the figure is missing (the voltage rules report that); and the system's
+ * nominal pair as the standards name it, which limits and every "% of nominal" are taken against.
  */
 import type { SupplySpec } from './boardSchema.js';
 import type { Board } from './boardModel.js';
@@ -20,19 +21,23 @@ export function nominalVoltagesOf(supply: SupplySpec): { ln: number; ll: number 
 }
 
 /**
- * The standard star pairs U0/U of IEC 60038 Table 1 (230/400, 400/690; at 60 Hz 120/208, 277/480,
- * 347/600; checked against a secondary summary of the table, the "IEC 60038" encyclopaedia entry) and the
- * pairs they replaced and that are still met in service (220/380, 240/415, 380/660; same source).
+ * The star pairs U0/U of IEC 60038 Table 1: 230/400, 400/690 and, at 60 Hz, 120/208, 277/480, 347/600
+ * (checked against a secondary summary of the table, the "IEC 60038" encyclopaedia entry).
  */
-export const STANDARD_STAR_PAIRS: readonly (readonly [lineToNeutralV: number, lineToLineV: number])[] = [
+export const IEC_60038_STAR_PAIRS: readonly (readonly [lineToNeutralV: number, lineToLineV: number])[] = [
   [120, 208],
-  [220, 380],
   [230, 400],
-  [240, 415],
   [277, 480],
   [347, 600],
-  [380, 660],
   [400, 690],
+];
+
+/** Those and the pairs they replaced that are still met in service: 220/380, 240/415, 380/660 (same source). */
+export const STANDARD_STAR_PAIRS: readonly (readonly [lineToNeutralV: number, lineToLineV: number])[] = [
+  ...IEC_60038_STAR_PAIRS,
+  [220, 380],
+  [240, 415],
+  [380, 660],
 ];
 
 /**

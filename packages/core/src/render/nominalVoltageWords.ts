@@ -3,18 +3,22 @@
  * the HTML report and the installation report.
  */
 import type { BoardResult } from '../analysis/boardResult.js';
-import { STANDARD_STAR_PAIRS } from '../board/nominalVoltages.js';
+import { IEC_60038_STAR_PAIRS, STANDARD_STAR_PAIRS } from '../board/nominalVoltages.js';
 import { argumentIssueError, checkNumberArgument } from '../_internal/argumentChecks.js';
 
 /** A voltage to 0.1 V without a trailing ".0": 230, 230.9, 120. */
 const volts = (v: number) => String(Math.round(v * 10) / 10);
 
-/** "400 V line-to-line, 230 V line-to-neutral", or "230 V" on a single-phase 2-wire board. */
-export function nominalVoltageWords(board: BoardResult['board']): string {
-  // NaN wrote "NaN V line-to-line".
+/** The words below print these figures: NaN wrote "NaN V line-to-line". */
+function checkBoardFigures(board: BoardResult['board']): void {
   if (typeof board !== 'object' || board === null) throw argumentIssueError('board', "a solved board's board figures (result.board)", board);
   checkNumberArgument(board.nominalLineToNeutralV, 'board.nominalLineToNeutralV', 'a nominal voltage in V, a finite number above 0', (x) => x > 0);
   if (board.nominalLineToLineV !== null) checkNumberArgument(board.nominalLineToLineV, 'board.nominalLineToLineV', 'a nominal voltage in V, a finite number above 0, or null', (x) => x > 0);
+}
+
+/** "400 V line-to-line, 230 V line-to-neutral", or "230 V" on a single-phase 2-wire board. */
+export function nominalVoltageWords(board: BoardResult['board']): string {
+  checkBoardFigures(board);
   return board.nominalLineToLineV !== null ? `${volts(board.nominalLineToLineV)} V line-to-line, ${volts(board.nominalLineToNeutralV)} V line-to-neutral` : `${volts(board.nominalLineToNeutralV)} V`;
 }
 
@@ -23,6 +27,7 @@ export function nominalVoltageWords(board: BoardResult['board']): string {
  * pair is not exactly √3 apart) the figure the file gave and the other one it implies.
  */
 export function sourceVoltageWords(board: BoardResult['board'], unbalancedEmf: boolean): string {
+  checkBoardFigures(board);
   if (unbalancedEmf) return 'unbalanced, as entered per phase';
   const s = board.sourceNominal;
   if (!s) return 'balanced at nominal voltage';
@@ -31,6 +36,7 @@ export function sourceVoltageWords(board: BoardResult['board'], unbalancedEmf: b
 
 /** A text report's line under its header where the source is not exactly the nominal pair; null where it is. */
 export function sourceHeldLine(board: BoardResult['board']): string | null {
+  checkBoardFigures(board);
   const s = board.sourceNominal;
   return s ? `source holds ${heldWords(s)} as given, and loads are rated there; limits are judged at the nominal ${nominalPairWords(board)}` : null;
 }
@@ -46,9 +52,10 @@ const nominalPairWords = (b: BoardResult['board']) => (b.nominalLineToLineV === 
  * nominal a standard's band is written for. Null on a standard pair and on other systems.
  */
 export function nonStandardNominalNote(board: BoardResult['board']): string | null {
+  checkBoardFigures(board);
   if (board.system !== 'three-phase-4wire' || board.nominalLineToLineV === null) return null;
   const { nominalLineToNeutralV: ln, nominalLineToLineV: ll } = board;
   if (STANDARD_STAR_PAIRS.some(([n, l]) => n === ln || l === ll)) return null;
-  const pairs = STANDARD_STAR_PAIRS.filter(([n]) => n !== 220 && n !== 240 && n !== 380).map(([n, l]) => `${n}/${l}`).join(', ');
+  const pairs = IEC_60038_STAR_PAIRS.map(([n, l]) => `${n}/${l}`).join(', ');
   return `${volts(ll)} V is not a nominal voltage of IEC 60038 (${pairs} V): the limits are taken at the figures given. Where it is what the source holds with no load, give the system's nominal as the voltage and the source's figure per phase under supply.emf`;
 }
