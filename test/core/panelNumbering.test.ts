@@ -154,3 +154,47 @@ describe('multi-pole breakers written with every position', () => {
     expect(poleWarnings(bakery(loads))).toEqual([]);
   });
 });
+
+describe('breakers that would share a position', () => {
+  const overlaps = (b: unknown) => solveBoard(b).warnings.filter((w) => w.code === 'circuit-positions-overlap');
+  const supply = { voltage: '208Y/120' };
+  it('a 1-pole circuit 4 inside a 3-pole breaker at 2 (2, 4, 6) is warned, naming both and the position', () => {
+    const w = overlaps(
+      board(supply, [
+        { name: 'Range', circuit: '2', poles: 3, connection: 'ABC-delta', kW: 9 },
+        { name: 'Toaster', circuit: '4', connection: 'B-N', kW: 1.5 },
+        { name: 'Lights', circuit: '1', connection: 'A-N', kW: 0.8 },
+      ]),
+    );
+    expect(w.map((x) => x.message)).toEqual(['loads "Range" (positions 2, 4, 6) and "Toaster" (position 4) both need position 4: a breaker position holds one pole of one breaker; check the schedule or the poles']);
+  });
+  it('listed positions count as written ("3,5" against a 2-pole breaker at 1: 1, 3), and a clean schedule gives none', () => {
+    const w = overlaps(
+      board(supply, [
+        { name: 'Dryer', circuit: '1', connection: 'A-B', kW: 4 },
+        { name: 'Heater', circuit: '3,5', connection: 'B-C', kW: 3 },
+      ]),
+    );
+    expect(w.map((x) => x.value)).toEqual([3]);
+    const clean = board(supply, [
+      { name: 'Dryer', circuit: '1', connection: 'A-B', kW: 4 },
+      { name: 'Heater', circuit: '5,7', connection: 'C-A', kW: 3 },
+      { name: 'Fridge', circuit: '2', connection: 'A-N', kW: 0.5 },
+    ]);
+    expect(overlaps(clean)).toEqual([]);
+    // The same text twice is the shared-number warning's, not a second finding here.
+    const twice = board(supply, [
+      { name: 'Fan 1', circuit: '8', connection: 'B-N', kW: 0.3 },
+      { name: 'Fan 2', circuit: '8', connection: 'B-N', kW: 0.3 },
+    ]);
+    expect(overlaps(twice)).toEqual([]);
+    expect(solveBoard(twice).warnings.map((x) => x.code)).toContain('circuit-number-shared');
+  });
+  it('IEC boards number their ways otherwise: no finding', () => {
+    const iec = board({ voltage: '400/230', frequencyHz: 50 }, [
+      { name: 'Oven', circuit: '2', poles: 3, connection: 'ABC-delta', kW: 9 },
+      { name: 'Kettle', circuit: '4', connection: 'B-N', kW: 2 },
+    ]);
+    expect(overlaps(iec)).toEqual([]);
+  });
+});

@@ -8,7 +8,7 @@ import { boardVoltagePoints } from './voltageCheck.js';
 import { bandWords, judgeVoltage, presetLimits, type VoltageLimits } from '../board/conventions/voltageLimits.js';
 import type { Region } from '../board/conventions/region.js';
 import { unbalanceFigure, VOLTAGE_UNBALANCE_LIMITS } from '../board/conventions/unbalanceLimits.js';
-import { circuitNumberMismatches, sharedCircuitNumbers } from './panelNumbering.js';
+import { circuitNumberMismatches, overlappingCircuitPositions, sharedCircuitNumbers } from './panelNumbering.js';
 import { unitWords } from './sourceUnitsWords.js';
 import { lengthFigure, type FeederRouteLengths } from '../board/feederModel.js';
 
@@ -220,6 +220,17 @@ export function boardWarnings(input: {
         message,
         // The first position, and the number of phases the numbering rotates through.
         value: m.circuit,
+        threshold: phases.length,
+      });
+    }
+  if (input.region === 'north-america')
+    for (const o of overlappingCircuitPositions(loads, phases.length)) {
+      const [a, b] = o.names;
+      const at = (p: readonly number[]) => (p.length === 1 ? `position ${p[0]}` : `positions ${p.join(', ')}`);
+      out.push({
+        code: 'circuit-positions-overlap',
+        message: `loads "${a}" (${at(o.positions[0])}) and "${b}" (${at(o.positions[1])}) both need ${at(o.common)}: a breaker position holds one pole of one breaker; check the schedule or the poles`,
+        value: o.common[0]!,
         threshold: phases.length,
       });
     }

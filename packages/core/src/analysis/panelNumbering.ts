@@ -111,3 +111,38 @@ export function sharedCircuitNumbers(loads: readonly LoadReading[]): SharedCircu
   }
   return [...byNumber.values()].filter((e) => e.names.length > 1);
 }
+
+/** Two of a board's loads whose breakers take a position in common, under the usual numbering. */
+export interface OverlappingCircuitPositions {
+  readonly names: readonly [string, string];
+  /** Each load's positions: those it lists, or its first and those its breaker's other poles take (n + 2, …). */
+  readonly positions: readonly [readonly number[], readonly number[]];
+  readonly common: readonly number[];
+}
+
+/**
+ * Loads whose breakers would share a position: a 3-pole breaker at 2 takes 2, 4 and 6, so a 1-pole
+ * circuit numbered 4 cannot sit there too. Loads that give the same circuit text are left to
+ * sharedCircuitNumbers (one finding per slip); a circuit not written as numbers is not judged.
+ */
+export function overlappingCircuitPositions(loads: readonly LoadReading[], phaseCount: number): OverlappingCircuitPositions[] {
+  if (phaseCount !== 2 && phaseCount !== 3) return [];
+  const taken = loads.flatMap((load) => {
+    if (load.origin !== 'board') return [];
+    const written = circuitPositionsOf(load.circuit);
+    if (written === null) return [];
+    const poles = load.poles ?? writtenPhases(load.connection)?.length ?? phaseCount;
+    const positions = written.length > 1 ? written : Array.from({ length: poles }, (_, k) => written[0]! + 2 * k);
+    return [{ name: load.name, key: written.join(','), positions }];
+  });
+  const out: OverlappingCircuitPositions[] = [];
+  for (let i = 0; i < taken.length; i++)
+    for (let j = i + 1; j < taken.length; j++) {
+      const a = taken[i]!;
+      const b = taken[j]!;
+      if (a.key === b.key) continue;
+      const common = a.positions.filter((n) => b.positions.includes(n));
+      if (common.length) out.push({ names: [a.name, b.name], positions: [a.positions, b.positions], common });
+    }
+  return out;
+}
