@@ -135,14 +135,30 @@ export function overlappingCircuitPositions(loads: readonly LoadReading[], phase
     const positions = written.length > 1 ? written : Array.from({ length: poles }, (_, k) => written[0]! + 2 * k);
     return [{ name: load.name, key: written.join(','), positions }];
   });
-  const out: OverlappingCircuitPositions[] = [];
-  for (let i = 0; i < taken.length; i++)
-    for (let j = i + 1; j < taken.length; j++) {
-      const a = taken[i]!;
-      const b = taken[j]!;
-      if (a.key === b.key) continue;
-      const common = a.positions.filter((n) => b.positions.includes(n));
-      if (common.length) out.push({ names: [a.name, b.name], positions: [a.positions, b.positions], common });
+  // Each position's loads, one per circuit text (the same text twice is sharedCircuitNumbers' finding), so only
+  // loads that meet at a position are compared and a 1,000-circuit board stays linear.
+  const atPosition = new Map<number, number[]>();
+  taken.forEach((t, i) => {
+    for (const n of t.positions) {
+      const owners = atPosition.get(n);
+      if (owners === undefined) atPosition.set(n, [i]);
+      else if (!owners.some((o) => taken[o]!.key === t.key)) owners.push(i);
     }
-  return out;
+  });
+  const pairs = new Map<number, { i: number; j: number; common: number[] }>();
+  for (const [n, owners] of atPosition) {
+    if (owners.length < 2) continue;
+    for (let x = 0; x < owners.length; x++)
+      for (let y = x + 1; y < owners.length; y++) {
+        const i = owners[x]!;
+        const j = owners[y]!;
+        const key = i * taken.length + j;
+        const pair = pairs.get(key) ?? { i, j, common: [] };
+        pair.common.push(n);
+        pairs.set(key, pair);
+      }
+  }
+  return [...pairs.values()]
+    .sort((p, q) => p.i - q.i || p.j - q.j)
+    .map(({ i, j, common }) => ({ names: [taken[i]!.name, taken[j]!.name], positions: [taken[i]!.positions, taken[j]!.positions], common: common.sort((x, y) => x - y) }));
 }
