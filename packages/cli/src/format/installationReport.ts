@@ -172,7 +172,7 @@ export function renderInstallationReport(r: InstallationResult, options: Install
     [
       r.installation.name,
       `${SYSTEM_WORDS[r.installation.system] ?? r.installation.system} · ${volts} · ${first.frequencyHz} Hz · ${r.installation.boardCount} board${r.installation.boardCount === 1 ? '' : 's'}`,
-      ...(sourceHeldLine(first) ? [wrapText(sourceHeldLine(first)!, '', '  ')] : []),
+      ...[sourceHeldLine(first)].flatMap((held) => (held ? [wrapText(held, '', '  ')] : [])),
     ].join('\n'),
     ...collapseBlock(r),
     section('Boards') + boardTable(r) + `\n${note(`min and max %nom: the lowest and highest voltage the limits judge (line-to-neutral, line-to-line, at the loads); ${unbalanceWords(r)}own: this board's circuits; fed: what enters its feeder at the sending end, the feeder's loss and the boards beyond it included (main board: what the source EMFs deliver).`)}`,
