@@ -238,4 +238,27 @@ describe('correct report wording', () => {
     expect(html).not.toMatch(/-0\.\d{3} kW/);
     expect(html).toContain(`${v.before.losses.totalKW.toFixed(3)} → ${v.after.losses.totalKW.toFixed(3)} kW (adds ${(-v.lossReductionKW).toFixed(3)} kW)`);
   });
+
+  it('a line that carries active power back reads "export", as in trivar solve, with the vars read from its reactive part', () => {
+    // hillside-workshop: the PV inverter on B makes line B carry active power back before and after the bank.
+    const { spec, board } = boardOf('examples/hillside-workshop.yaml');
+    const correction = correctBoard(board, { arrangement: 'delta-bank' });
+    const b = correction.verification.lines.find((l) => l.phase === 'B')!;
+    expect(b.activeCurrentA.before).toBeLessThan(-0.05);
+    expect(b.activeCurrentA.after).toBeLessThan(-0.05);
+    const solved = runTrivar(['solve', `${ROOT}examples/hillside-workshop.yaml`]).stdout;
+    const pfBefore = Math.abs(b.pf.before!).toFixed(3);
+    expect(solved).toMatch(new RegExp(`\\n  B .* ${pfBefore} export`));
+    const text = runTrivar(['correct', `${ROOT}examples/hillside-workshop.yaml`, '--arrangement', 'delta-bank']).stdout;
+    const row = text.split('\n').find((l) => /^ {2}B {5}\d/.test(l) && l.includes('→') && l.includes('export'))!;
+    expect(row).toContain(`${pfBefore} export → ${Math.abs(b.pf.after!).toFixed(3)} export`);
+    expect(text.replace(/\s+/g, ' ')).toContain('(line B carries active power back to the supply (active part below zero): "export" in place of lag/lead;');
+    // Lines that draw power keep their lag/lead words, and no note where none carries power back.
+    expect(text).toMatch(/\n {2}A .*lag → .*lag/);
+    const html = renderReportHtml(buildBoardReport({ spec, result: solveBoardModel(board), correction }));
+    expect(html).toContain(`${pfBefore} export`);
+    expect(html).toContain('Line B carries active power back to the supply');
+    const bakery = runTrivar(['correct', `${ROOT}examples/corner-bakery.yaml`, '--arrangement', 'delta-bank']).stdout;
+    expect(bakery).not.toContain('carries active power back');
+  });
 });

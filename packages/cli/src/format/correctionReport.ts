@@ -1,5 +1,5 @@
 /** CorrectionReport → the human-readable report of `trivar correct` (fits 100 columns). */
-import { arrangementDescriptions, arrangementNames, BUILD_VERDICT_WORDS, CORRECTION_DEFAULTS, labellerOf, meteringPointWords, reactorChanges, smallBranchWords, sparedBranchesWords, type BankSelection, type BankStep, type BeforeAfter, type BranchSizing, type CompensatorSizing, type ControllerSettings, type CorrectionReport, type CorrectionVerification, type FewerBranchesBuild, type PhaseId, type RoundingBesideReactors, type PhaseLabeller, signedPfText } from '@trivar/core';
+import { arrangementDescriptions, arrangementNames, BUILD_VERDICT_WORDS, CORRECTION_DEFAULTS, labellerOf, meteringPointWords, reactorChanges, smallBranchWords, sparedBranchesWords, type BankSelection, type BankStep, type BeforeAfter, type BranchSizing, type CompensatorSizing, type ControllerSettings, type CorrectionReport, type CorrectionVerification, type FewerBranchesBuild, type PhaseId, type RoundingBesideReactors, type PhaseLabeller, signedPfText, linePfText, exportingLinesNote } from '@trivar/core';
 import { fixed, renderTable, section } from './textTable.js';
 import { headerLines } from './solveReport.js';
 import { wrapText } from './wrapText.js';
@@ -191,10 +191,18 @@ export function lineTable(v: Pick<CorrectionVerification, 'lines'>, label: Phase
       arrow(l.currentA, 1),
       arrow(l.activeCurrentA, 1),
       arrow(l.reactiveCurrentA, 1),
-      `${pfFigure(l.pf.before)} ${senseWord(l.sense.before)} → ${pfFigure(l.pf.after)} ${senseWord(l.sense.after)}`.replace(/ +/g, ' ').trim(),
+      `${linePfText(l.pf.before, l.sense.before, l.activeCurrentA.before, NO_CURRENT)} → ${linePfText(l.pf.after, l.sense.after, l.activeCurrentA.after, NO_CURRENT)}`,
     ]),
-  );
+  ) + exportNote(v.lines.filter((l) => exports(l.activeCurrentA.before) || exports(l.activeCurrentA.after)).map((l) => label(l.phase)));
 }
+
+const NO_CURRENT = 'no current';
+/** As the tables print the active part (0.1 A): below zero, the line carries power back to the supply. */
+const exports = (activeA: number) => fixed(activeA, 1).startsWith('-');
+const exportNote = (lines: readonly string[]): string => {
+  const note = exportingLinesNote(lines);
+  return note === null ? '' : `\n${wrapText(`(${note}.)`, '  ', '   ')}`;
+};
 
 /** A change worded by its sign: "saves 0.44 kW", or "adds 0.01 kW". */
 const signed = (x: number, digits: number, unit: string, good: string, bad: string) =>
@@ -352,8 +360,8 @@ function lineTableNow(v: Pick<CorrectionVerification, 'lines'>, label: PhaseLabe
       { header: 'reactive part A' },
       { header: 'PF', align: 'left' },
     ],
-    v.lines.map((l) => [label(l.phase), fixed(l.currentA.before, 1), fixed(l.activeCurrentA.before, 1), fixed(l.reactiveCurrentA.before, 1), `${pfFigure(l.pf.before)} ${senseWord(l.sense.before)}`.trim()]),
-  );
+    v.lines.map((l) => [label(l.phase), fixed(l.currentA.before, 1), fixed(l.activeCurrentA.before, 1), fixed(l.reactiveCurrentA.before, 1), linePfText(l.pf.before, l.sense.before, l.activeCurrentA.before, NO_CURRENT)]),
+  ) + exportNote(v.lines.filter((l) => exports(l.activeCurrentA.before)).map((l) => label(l.phase)));
 }
 
 /**

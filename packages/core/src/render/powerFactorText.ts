@@ -5,7 +5,7 @@
  * way the vars go). A PF that prints as 1.000 with vars that print as 0.00 gets no tag: a lamp of 1 W
  * on a 10 kW phase must not make the line read "1.000 lag". No power at all has no PF: `none`.
  */
-import type { PowerReading } from '../analysis/boardResult.js';
+import type { PowerFactorSense, PowerReading } from '../analysis/boardResult.js';
 import { fixed } from './svgText.js';
 import { argumentIssueError, checkNumberArgument } from '../_internal/argumentChecks.js';
 
@@ -52,4 +52,32 @@ export function assumedPfNote(assumedKW: readonly number[]): string {
   const exporters = assumedKW.filter((kW) => kW < 0).length;
   const why = exporters === 0 ? ' (a resistive load)' : exporters === assumedKW.length ? ' (exporting at unity power factor)' : ' (a resistive load; where it exports, a source at unity power factor)';
   return `*: pf not given in the file, taken as 1${why}.`;
+}
+
+/**
+ * A line's PF in a correction table, beside its active part as printed (0.1 A): "0.951 lag", or
+ * "0.572 export" where that active part is below zero, the same words `powerFactorText` gives the line
+ * in `trivar solve` (the reactive part beside it says which way the vars go); `none` without current.
+ */
+export function linePfText(pf: number | null, sense: PowerFactorSense, activeCurrentA: number, none = '-'): string {
+  if (!(Number.isFinite(activeCurrentA) && (pf === null || Math.abs(pf) <= 1 + 1e-9))) {
+    checkNumberArgument(activeCurrentA, 'activeCurrentA', 'the active part of the line current in A, a finite number');
+    if (pf !== null) checkNumberArgument(pf, 'pf', 'a power factor from -1 to 1, or null where no current flows', (x) => Math.abs(x) <= 1 + 1e-9);
+  }
+  if (pf === null) return none;
+  const shown = fixed(Math.abs(pf), 3);
+  if (fixed(activeCurrentA, 1).startsWith('-')) return `${shown} export`;
+  return sense === 'lagging' ? `${shown} lag` : sense === 'leading' ? `${shown} lead` : shown;
+}
+
+/**
+ * The note under a table of lines where some carry active power back to the supply (active part
+ * below zero, as printed): what "export" in their PF cell means and where the vars' direction is read.
+ * Null where no line does. `lines` are the labels of those lines.
+ */
+export function exportingLinesNote(lines: readonly string[]): string | null {
+  if (!Array.isArray(lines) || lines.some((l) => typeof l !== 'string')) throw argumentIssueError('lines', 'the labels of the lines that export, e.g. ["L2"]', lines);
+  if (lines.length === 0) return null;
+  const which = lines.length === 1 ? `line ${lines[0]} carries` : `lines ${lines.join(', ')} carry`;
+  return `${which} active power back to the supply (active part below zero): "export" in place of lag/lead; the reactive part says which way the vars go (above zero: absorbed, as by a lagging load)`;
 }

@@ -9,6 +9,7 @@ import type { HarmonicCorrectionReport } from '../../harmonics/correctWithHarmon
 import { correctionComparisonBlocks } from './correctionComparisonBlocks.js';
 import { arrangementDescriptions, arrangementNames, meteringPointWords } from '../../correction/correctionWording.js';
 import { fixed } from '../svgText.js';
+import { exportingLinesNote, linePfText } from '../powerFactorText.js';
 import { renderPhasorDiagram } from '../renderPhasorDiagram.js';
 import { renderCurrentTriangles } from '../renderCurrentTriangles.js';
 import type { ReportBlock, ReportSection } from './reportDocument.js';
@@ -125,11 +126,21 @@ function nothingToAddSection(report: CorrectionReport, comparison: CorrectionCom
       fixed(l.currentA.before, 1),
       fixed(l.activeCurrentA.before, 1),
       fixed(l.reactiveCurrentA.before, 1),
-      `${l.pf.before === null ? '—' : fixed(l.pf.before, 3)} ${l.sense.before === 'leading' ? 'lead' : l.sense.before === 'lagging' ? 'lag' : ''}`.trim(),
+      linePfText(l.pf.before, l.sense.before, l.activeCurrentA.before, '—'),
     ]),
-    note: 'Active and reactive parts of each line current, along and across its own line-to-neutral voltage (reactive above zero is lagging).',
+    note: linesNote(v.lines.filter((l) => exports(l.activeCurrentA.before)).map((l) => label(l.phase))),
   });
   return { id: 'correction', title: 'Correction recommendation', blocks };
+}
+
+/** As the tables print the active part (0.1 A): below zero, the line carries power back to the supply. */
+const exports = (activeA: number) => fixed(activeA, 1).startsWith('-');
+
+/** The lines tables' note, with what "export" means where a line carries power back. */
+function linesNote(exporting: readonly string[]): string {
+  const base = 'Active and reactive parts of each line current, along and across its own line-to-neutral voltage (reactive above zero is lagging).';
+  const more = exportingLinesNote(exporting);
+  return more === null ? base : `${base} ${more.charAt(0).toUpperCase()}${more.slice(1)}.`;
 }
 
 /** @param comparison the arrangements compared, when the study named none and `report` is the one recommended */
@@ -181,10 +192,10 @@ export function correctionSection(report: CorrectionReport, comparison: Correcti
       fixed(l.currentA.after, 1),
       `${fixed(l.activeCurrentA.before, 1)} → ${fixed(l.activeCurrentA.after, 1)}`,
       `${fixed(l.reactiveCurrentA.before, 1)} → ${fixed(l.reactiveCurrentA.after, 1)}`,
-      `${l.pf.before === null ? '—' : fixed(l.pf.before, 3)} ${l.sense.before === 'leading' ? 'lead' : l.sense.before === 'lagging' ? 'lag' : ''}`.trim(),
-      `${l.pf.after === null ? '—' : fixed(l.pf.after, 3)} ${l.sense.after === 'leading' ? 'lead' : l.sense.after === 'lagging' ? 'lag' : ''}`.trim(),
+      linePfText(l.pf.before, l.sense.before, l.activeCurrentA.before, '—'),
+      linePfText(l.pf.after, l.sense.after, l.activeCurrentA.after, '—'),
     ]),
-    note: 'Active and reactive parts of each line current, along and across its own line-to-neutral voltage (reactive above zero is lagging).',
+    note: linesNote(v.lines.filter((l) => exports(l.activeCurrentA.before) || exports(l.activeCurrentA.after)).map((l) => label(l.phase))),
   });
   blocks.push({ kind: 'figure', name: 'correction-phasors', caption: 'Phasors before (dashed) and after (solid) the correction', svg: renderPhasorDiagram(v.before, { after: v.after }) });
   blocks.push({ kind: 'figure', name: 'correction-triangles', caption: 'How the equipment changes each line current', svg: renderCurrentTriangles(v.before, v.after) });
