@@ -217,6 +217,7 @@ function solvedFigures(name: string, board: string, result: BoardResult): Condit
     neutralA: result.neutral ? result.neutral.current.magnitude : null,
     currentUnbalancePercent: result.unbalance ? result.unbalance.currentNegativePercent : null,
     voltageUnbalancePercent: result.unbalance ? result.unbalance.voltageFactorPercent : null,
+    lineVoltageRatePercent: result.unbalance ? result.unbalance.lineVoltageRatePercent : null,
   });
 }
 
@@ -473,7 +474,7 @@ export function rebalanceInstallation(installation: Installation, study: unknown
   const lb = chosen.lowerBound;
   const main0 = tree.boards[0]!;
   return {
-    board: { name: tree.boards.length > 1 ? installation.name : main0.name, system: main0.system, phaseNames: conventionsOf(main0).phaseNames },
+    board: { name: tree.boards.length > 1 ? installation.name : main0.name, system: main0.system, phaseNames: conventionsOf(main0).phaseNames, region: conventionsOf(main0).region },
     boards: {
       all: tree.names,
       movable: tree.names.filter((_, b) => resolved.movableBoards[b]),
