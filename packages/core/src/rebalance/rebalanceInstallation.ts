@@ -81,6 +81,8 @@ export interface RebalanceOptions {
    * Your own score of the condition figures (lower is better) instead of the
    * aim weights. It must never fall when a figure grows (see `RebalanceObjective`). It sees frozen
    * copies of the figures; a score that is not a finite number is refused (InputError at `objective`).
+   * The search gives it the fast model's figures, whose `lineVoltageRatePercent` is null; `solvedScore`
+   * is the same score of the network re-solve's, where that figure is filled in.
    */
   readonly objective?: RebalanceObjective;
   /** The file's `profile:` section, read when the study's conditions are `"scenarios"`. */
