@@ -13,6 +13,27 @@ const FIGURE_WORDS: Record<string, string> = {
   voltageUnbalance: 'voltage unbalance |V2|/|V1| (%)',
 };
 
+/**
+ * A North-American board's motors are judged by NEMA MG 1's line-voltage unbalance rate (largest deviation
+ * of a line-to-line voltage from the mean of the three, % of the mean): its reports show that figure beside
+ * |V2|/|V1|, from the network re-solve (the fast model has no line voltages). IEC boards show |V2|/|V1| alone.
+ */
+const showsLineRate = (r: RebalanceReport, f: ConditionFigures) => r.board.region === 'north-america' && f.lineVoltageRatePercent !== null;
+const LINE_RATE_ROW = 'line-voltage unbalance, NEMA MG 1 (%)';
+
+/**
+ * Where the score weighs |V2|/|V1| on a North-American board: what it scored, and the NEMA figure now and after
+ * (the largest over the conditions and incomers the score reads, where there are several).
+ */
+function lineRateBesideScore(r: RebalanceReport): string | null {
+  if (r.aim === 'custom' || r.aim.voltageUnbalance === 0) return null;
+  const read = r.conditions.filter((c) => showsLineRate(r, c.solved.before));
+  if (read.length === 0) return null;
+  const largest = (side: 'before' | 'after') => Math.max(...read.map((c) => c.solved[side].lineVoltageRatePercent!));
+  const where = read.length > 1 ? ', the largest over the conditions and incomers scored' : '';
+  return `The score weighs |V2|/|V1|; the NEMA MG 1 line-voltage unbalance rate, which agrees closely with it while the unbalance is small, is now ${percent(largest('before'))} % → after ${percent(largest('after'))} % (network re-solve${where}).`;
+}
+
 /** True when the report covers several boards of an installation. */
 const isInstallation = (r: RebalanceReport) => r.boards.all.length > 1;
 
@@ -105,7 +126,10 @@ function workOrder(r: RebalanceReport): string {
   return (isInstallation(r) ? renderTableWithin(columns, rows) : renderTable(columns, rows)) + legend;
 }
 
-/** Installations: two rows per board's incomer (now, after), network re-solve; `*` marks the boards the score reads. */
+/**
+ * Installations: two rows per board's incomer (now, after), network re-solve, and the table's key; `*` marks
+ * the boards the score reads.
+ */
 function boardsTable(r: RebalanceReport, condition: string): string {
   const rows: { board: string; measured: boolean; before: ConditionFigures; after: ConditionFigures }[] = [
     ...r.conditions.filter((c) => c.name === condition).map((c) => ({ board: c.board, measured: true, before: c.solved.before, after: c.solved.after })),
@@ -121,25 +145,32 @@ function boardsTable(r: RebalanceReport, condition: string): string {
     ...(first.neutralA !== null ? [{ header: 'neutral' }] : []),
     ...(threeLines ? [{ header: '|I2|/|I1|' }] : []),
     ...(first.voltageUnbalancePercent !== null ? [{ header: '|V2|/|V1|' }] : []),
+    ...(showsLineRate(r, first) ? [{ header: 'NEMA MG 1' }] : []),
   ];
   const cells = (f: ConditionFigures) => [
     ...f.lineA.map((a) => amps(a)),
     ...(first.neutralA !== null ? [amps(f.neutralA)] : []),
     ...(threeLines ? [percent(f.currentUnbalancePercent)] : []),
     ...(first.voltageUnbalancePercent !== null ? [percent(f.voltageUnbalancePercent)] : []),
+    ...(showsLineRate(r, first) ? [percent(f.lineVoltageRatePercent)] : []),
   ];
   const mark = rows.some((x) => !x.measured);
-  return renderTableWithin(
+  const measuredKey = mark ? '\n  * the score reads these incomers' : '';
+  const lineRateKey = showsLineRate(r, first)
+    ? `\n${wrapText('NEMA MG 1: line-voltage unbalance rate, % (the largest deviation of a line-to-line voltage from the mean of the three)', '  ', '    ')}`
+    : '';
+  const table = renderTableWithin(
     columns,
     rows.flatMap(({ board, measured, before, after }) => [
       [`${mark ? (measured ? '* ' : '  ') : ''}${board}`, 'now', ...cells(before)],
       ['', 'after', ...cells(after)],
     ]),
   );
+  return table + measuredKey + lineRateKey;
 }
 
 
-function conditionTable(c: ConditionComparison, lines: readonly string[]): string {
+function conditionTable(r: RebalanceReport, c: ConditionComparison, lines: readonly string[]): string {
   const rows: string[][] = [];
   const row = (label: string, pick: (f: ConditionFigures) => string) =>
     rows.push([label, pick(c.solved.before), pick(c.solved.after), pick(c.model.after)]);
@@ -148,6 +179,7 @@ function conditionTable(c: ConditionComparison, lines: readonly string[]): strin
   if (lines.length === 3) row('|I2|/|I1| (%)', (f) => percent(f.currentUnbalancePercent));
   if (c.solved.before.voltageUnbalancePercent !== null)
     rows.push(['|V2|/|V1| (%)', percent(c.solved.before.voltageUnbalancePercent), percent(c.solved.after.voltageUnbalancePercent), c.model.after.voltageUnbalancePercent === null ? '-' : percent(c.model.after.voltageUnbalancePercent)]);
+  if (showsLineRate(r, c.solved.before)) rows.push([LINE_RATE_ROW, percent(c.solved.before.lineVoltageRatePercent), percent(c.solved.after.lineVoltageRatePercent), '-']);
   return renderTable(
     [{ header: '', align: 'left' }, { header: 'now' }, { header: 'after' }, { header: 'after (fast model)' }],
     rows,
@@ -185,6 +217,8 @@ export function renderRebalanceReport(r: RebalanceReport): string {
     `  network re-solve: now ${s(r.solvedScore.before)}  →  after ${s(r.solvedScore.after)}`,
     wrapText(verdict(r), '  ', '    '),
   ];
+  const beside = lineRateBesideScore(r);
+  if (beside) parts.push(wrapText(beside, '  ', '    '));
   parts.push(section(`Work order (${r.moves.length} move${r.moves.length === 1 ? '' : 's'})`) + workOrder(r));
   const names = [...new Set(r.conditions.map((c) => c.name))];
   if (installation)
@@ -192,13 +226,12 @@ export function renderRebalanceReport(r: RebalanceReport): string {
       const weight = r.conditions.find((c) => c.name === name)!.weight;
       const what = 'incomer currents (A) and unbalance (%), installation re-solved';
       const title = names.length > 1 ? `Condition "${name}" (weight ${fixed(weight, 2)}): ${what}` : `Before and after: ${what}`;
-      const key = r.otherBoards.length ? '\n  * the score reads these incomers' : '';
-      parts.push(section(title) + boardsTable(r, name) + key);
+      parts.push(section(title) + boardsTable(r, name));
     }
   else
     for (const c of r.conditions) {
       const title = r.conditions.length > 1 ? `Condition "${c.name}" (weight ${fixed(c.weight, 2)}), network re-solve` : 'Before and after, network re-solve';
-      parts.push(section(title) + conditionTable(c, lines));
+      parts.push(section(title) + conditionTable(r, c, lines));
     }
   if (r.moveTable && r.moveTable.length > 1) parts.push(section('Best score by moves allowed') + moveTable(r));
   if (r.notes.length) parts.push(section('Notes') + r.notes.map((n) => wrapText(n, '  * ', '    ')).join('\n'));

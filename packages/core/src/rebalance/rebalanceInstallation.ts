@@ -81,6 +81,8 @@ export interface RebalanceOptions {
    * Your own score of the condition figures (lower is better) instead of the
    * aim weights. It must never fall when a figure grows (see `RebalanceObjective`). It sees frozen
    * copies of the figures; a score that is not a finite number is refused (InputError at `objective`).
+   * The search gives it the fast model's figures, whose `lineVoltageRatePercent` is null; `solvedScore`
+   * is the same score of the network re-solve's, where that figure is filled in.
    */
   readonly objective?: RebalanceObjective;
   /** The file's `profile:` section, read when the study's conditions are `"scenarios"`. */
@@ -217,6 +219,7 @@ function solvedFigures(name: string, board: string, result: BoardResult): Condit
     neutralA: result.neutral ? result.neutral.current.magnitude : null,
     currentUnbalancePercent: result.unbalance ? result.unbalance.currentNegativePercent : null,
     voltageUnbalancePercent: result.unbalance ? result.unbalance.voltageFactorPercent : null,
+    lineVoltageRatePercent: result.unbalance ? result.unbalance.lineVoltageRatePercent : null,
   });
 }
 
@@ -473,7 +476,7 @@ export function rebalanceInstallation(installation: Installation, study: unknown
   const lb = chosen.lowerBound;
   const main0 = tree.boards[0]!;
   return {
-    board: { name: tree.boards.length > 1 ? installation.name : main0.name, system: main0.system, phaseNames: conventionsOf(main0).phaseNames },
+    board: { name: tree.boards.length > 1 ? installation.name : main0.name, system: main0.system, phaseNames: conventionsOf(main0).phaseNames, region: conventionsOf(main0).region },
     boards: {
       all: tree.names,
       movable: tree.names.filter((_, b) => resolved.movableBoards[b]),

@@ -57,6 +57,13 @@ export interface ConditionFigures {
   readonly currentUnbalancePercent: number | null;
   /** |V2|/|V1| at the board, %. */
   readonly voltageUnbalancePercent: number | null;
+  /**
+   * NEMA MG 1 line-voltage unbalance rate at the board, %: the largest deviation of a line-to-line voltage
+   * from the mean of the three, as % of that mean (what `trivar solve` reports). Network re-solve only:
+   * the fast model has no line voltages, so its figures carry null; null too on a board with fewer than
+   * three lines. No built-in score weighs it.
+   */
+  readonly lineVoltageRatePercent: number | null;
 }
 
 /**
@@ -83,6 +90,7 @@ export function conditionFigures(layout: ConditionLayout, m: Float64Array): Cond
     neutralA: layout.neutral >= 0 ? m[layout.neutral]! : null,
     currentUnbalancePercent: layout.negative >= 0 ? (100 * m[layout.negative]!) / Math.max(layout.positiveA, 1e-12) : null,
     voltageUnbalancePercent: layout.voltageNegative >= 0 ? (100 * m[layout.voltageNegative]!) / Math.max(layout.positiveV, 1e-12) : null,
+    lineVoltageRatePercent: null,
   };
 }
 

@@ -3,6 +3,7 @@
  * and `trivar rebalance --json`. Currents in A, unbalance in %.
  */
 import type { PhaseNaming } from '../board/conventions/phaseNames.js';
+import type { Region } from '../board/conventions/region.js';
 import type { ConnectionSpec } from '../board/boardSchema.js';
 import type { AimWeights, ConditionFigures } from './rebalanceObjective.js';
 import type { VoltageLimits } from '../board/conventions/voltageLimits.js';
@@ -104,8 +105,12 @@ export interface HarmonicNeutralFigures {
 
 export interface RebalanceReport {
   /** The board, or the installation (its name) when it has several boards. */
-  /** `phaseNames`: how the file names phases; moves stay in A/B/C here, reports relabel them. */
-  readonly board: { readonly name: string; readonly system: string; readonly phaseNames?: PhaseNaming };
+  /**
+   * `phaseNames`: how the file names phases; moves stay in A/B/C here, reports relabel them. `region`: the
+   * trade practice the file follows (its conventions); on a North-American board reports show the NEMA MG 1
+   * line-voltage unbalance rate beside |V2|/|V1|.
+   */
+  readonly board: { readonly name: string; readonly system: string; readonly phaseNames?: PhaseNaming; readonly region: Region };
   /** Every board (main board first, then the file's order), those whose circuits could move, and those whose incomers the score reads. */
   readonly boards: { readonly all: readonly string[]; readonly movable: readonly string[]; readonly measured: readonly string[] };
   /**
