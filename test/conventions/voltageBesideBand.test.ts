@@ -10,6 +10,7 @@ import {
   checkIntervalSequence,
   createRowReader,
   driverColumns,
+  lowestVoltageChange,
   normaliseBoard,
   normaliseInstallation,
   parseBoard,
@@ -138,6 +139,13 @@ describe('voltageBesideBand and percentBesideBand', () => {
     // The band's top is 126.0937 V, printed 126.1 at 0.1 V, as a figure 1.3 mV above it would be.
     const shown = voltageBesideBand(a, { volts: 126.095, percent: (100 * 126.095) / nominal });
     expect(shown).toMatchObject({ side: 'over', volts: '126.095', voltsDecimals: 3 });
+  });
+
+  it('print a board’s lowest before → after in a correction study against that board’s limits', () => {
+    const limits = { preset: 'en50160-supply' as const, ...EN50160 };
+    const effect = { before: { boards: [{ name: 'Dairy', result: { voltageCheck: { limits } } }] } } as unknown as Parameters<typeof lowestVoltageChange>[0];
+    // 89.996 % is one of the loads the study counts outside the band: at 0.1 it would print 90.0.
+    expect(lowestVoltageChange(effect, { name: 'Dairy', lowestVoltagePercent: { before: 89.996, after: 90.34, change: 0.344 } as never })).toEqual({ before: '89.996', after: '90.3' });
   });
 
   it('refuse what they cannot print, by argument', () => {

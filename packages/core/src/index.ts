@@ -133,6 +133,7 @@ export type { InstallationCorrection, InstallationComparison, CorrectInstallatio
 export { correctInstallation, compareInstallationCorrections, installationBoardIndex } from './correction/correctInstallation.js';
 export type { InstallationEffect, BoardEffect, IncomerLineEffect, OtherBoardWarning, SupplyEffect } from './correction/installationEffect.js';
 export { installationEffect } from './correction/installationEffect.js';
+export { lowestVoltageChange, lowestInstallationVoltageChange } from './render/report/installationCorrectionSection.js';
 export { ORIGIN_POINT, meteringPoints, meteringPointIssues } from './correction/meteringPoint.js';
 export type * from './correction/correctionResult.js';
 export { arrangementDescriptions, arrangementNames, BUILD_VERDICT_WORDS, CORRECTION_CAUTIONS, meteringPointWords, reactorChanges, smallBranchWords, sparedBranchesWords } from './correction/correctionWording.js';
