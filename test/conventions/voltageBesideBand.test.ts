@@ -29,6 +29,7 @@ import {
   VOLTAGE_LIMIT_PRESETS,
 } from '@trivar/core';
 import { readFileSync } from 'node:fs';
+import { REBALANCE_NOTES } from '../../packages/core/src/rebalance/rebalanceWording.js';
 import { renderSolveReport } from '../../packages/cli/src/format/solveReport.js';
 import { renderProfileReport } from '../../packages/cli/src/format/profileReport.js';
 import { renderInstallationScenarioReport } from '../../packages/cli/src/format/installationProfileReport.js';
@@ -146,6 +147,14 @@ describe('voltageBesideBand and percentBesideBand', () => {
     const effect = { before: { boards: [{ name: 'Dairy', result: { voltageCheck: { limits } } }] } } as unknown as Parameters<typeof lowestVoltageChange>[0];
     // 89.996 % is one of the loads the study counts outside the band: at 0.1 it would print 90.0.
     expect(lowestVoltageChange(effect, { name: 'Dairy', lowestVoltagePercent: { before: 89.996, after: 90.34, change: 0.344 } as never })).toEqual({ before: '89.996', after: '90.3' });
+  });
+
+  it('print the extremes a rebalancing sentence quotes beside its verdict the same way', () => {
+    const before = solveBoard(farm(20)).voltageCheck;
+    const after = solveBoard(farm(5)).voltageCheck;
+    expect(REBALANCE_NOTES.voltagesOutside({ limits: before.limits, before, after }, null, null, false)).toBe(
+      'The voltages are above its voltage limits ±10 % (en50160-supply): highest 110.02 % (phase A).',
+    );
   });
 
   it('refuse what they cannot print, by argument', () => {

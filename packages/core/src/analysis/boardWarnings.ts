@@ -28,7 +28,10 @@ export const WARNING_THRESHOLDS = {
 } as const;
 
 /** The open-neutral study's band as limits: its flags judged, and its figures printed, as every voltage verdict's are. */
-export const OPEN_NEUTRAL_BAND = customLimits(WARNING_THRESHOLDS.voltageBandPercent, WARNING_THRESHOLDS.voltageBandPercent);
+export const OPEN_NEUTRAL_BAND: VoltageLimits = {
+  ...customLimits(WARNING_THRESHOLDS.voltageBandPercent, WARNING_THRESHOLDS.voltageBandPercent),
+  source: `the open-neutral study's flags: ±${WARNING_THRESHOLDS.voltageBandPercent} % of nominal (EN 50160 LV band)`,
+};
 
 /**
  * Relative margin a comparison of two currents allows for round-off. Quantities equal in
