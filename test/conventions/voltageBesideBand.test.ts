@@ -5,11 +5,15 @@
  * from a 100 kVA transformer, which lifts phase A to 253.05 V, just past EN 50160's 253.0 V at 230 V.
  */
 import { describe, expect, it } from 'vitest';
+import fc from 'fast-check';
 import {
+  bandVolts,
+  bandVoltsWords,
   buildBoardReport,
   checkIntervalSequence,
   createRowReader,
   driverColumns,
+  judgeVoltage,
   lowestVoltageChange,
   normaliseBoard,
   normaliseInstallation,
@@ -157,10 +161,33 @@ describe('voltageBesideBand and percentBesideBand', () => {
     );
   });
 
+  it('never print a figure on the other side of an edge from its verdict (nominal 100–1000 V, every preset, figures within 0.05 % of an edge)', () => {
+    const presets = Object.keys(VOLTAGE_LIMIT_PRESETS) as (keyof typeof VOLTAGE_LIMIT_PRESETS)[];
+    fc.assert(
+      fc.property(fc.double({ min: 100, max: 1000, noNaN: true }), fc.constantFrom(...presets), fc.boolean(), fc.double({ min: -0.05, max: 0.05, noNaN: true }), (nominal, name, upper, offset) => {
+        const limits = VOLTAGE_LIMIT_PRESETS[name];
+        const edge = upper ? 100 + limits.overPercent : 100 - limits.underPercent;
+        const percent = edge + offset;
+        const shown = voltageBesideBand(limits, { volts: (nominal * percent) / 100, percent });
+        expect(shown.side).toBe(judgeVoltage({ preset: name, ...limits }, percent));
+        const band = bandVolts(limits, nominal, shown.voltsDecimals);
+        const reads = (x: number, low: number, high: number) => (x < low ? 'under' : x > high ? 'over' : 'within');
+        expect(reads(Number(shown.volts), Number(band.low), Number(band.high))).toBe(shown.side);
+        expect(reads(Number(shown.percent), 100 - limits.underPercent, 100 + limits.overPercent)).toBe(shown.side);
+        expect(shown.voltsDecimals).toBeLessThanOrEqual(3);
+        expect(shown.percentDecimals).toBeLessThanOrEqual(3);
+      }),
+      { numRuns: 2000 },
+    );
+  });
+
   it('refuse what they cannot print, by argument', () => {
     expect(() => percentBesideBand(EN50160, Number.NaN)).toThrow(/percent: expected a voltage as a finite percentage of nominal/);
     expect(() => voltageBesideBand(EN50160, { volts: -1, percent: 50 })).toThrow(/reading\.volts/);
     expect(() => percentBesideEdges(100, 110, 90)).toThrow(/highPercent/);
+    expect(() => bandVolts(EN50160, 230, 4)).toThrow(/decimals: expected a whole number of decimals from 1 to 3 \(received 4\)/);
+    expect(() => bandVoltsWords({ preset: 'en50160-supply', ...EN50160 }, { lineToNeutralV: 230, lineToLineV: 400 }, { lineToNeutral: 0 })).toThrow(/decimals\.lineToNeutral/);
+    expect(bandVolts(EN50160, 230, 3)).toEqual({ low: '207.000', high: '253.000' });
   });
 });
 

@@ -135,7 +135,7 @@ function checkBandDecimals(decimals: unknown, name: string): void {
 
 /**
  * "120.1 V: 114.1–126.1 V line-to-neutral; 208.0 V: 197.6–218.4 V line-to-line": the band at a board's nominal voltages.
- * `decimals` prints one kind's ends finer where a figure beside them needed it (voltsDecimalsBesideBand).
+ * `decimals` prints one kind's ends finer where a figure beside them needed it (bandDecimalsOf in voltageCheck.ts).
  * @throws {InputError} naming the limit, the nominal voltage or the decimals that is not a finite figure in range (as judgedNominals gives them: a number or null)
  */
 export function bandVoltsWords(
