@@ -49,11 +49,18 @@ describe('system nominal voltages', () => {
     expect(r.board.sourceNominal?.lineToNeutralV).toBeCloseTo(230.94, 2);
   });
 
-  it('judge 114.05 V on a 208Y/120 board within ANSI C84.1 Range A (114–126 V) and 113.9 V under', () => {
+  it('judge 114.05 V on a 208Y/120 board within ANSI C84.1 Range A (114–126 V) line-to-neutral, and 113.9 V under', () => {
     const range = (v: number) => solveBoard(boardAt('208Y/120', v, { conventions: { voltageLimits: 'c84-service-a' } }));
     // On 208/√3 = 120.09 V, 114.05 V would have been 94.97 %, under; on 120 V it is 95.04 %.
     expect(range(114.05).phases[0]!.voltagePercent).toBeCloseTo((100 * 114.05) / 120, 2);
-    expect(verdict(range(114.05))).toBe('within');
+    expect(range(114.05).warnings.some((w) => w.message.startsWith('phase'))).toBe(false);
+    // Its line-to-line voltage, 114.05 × √3 = 197.54 V, is 94.97 % of 208 V: under 197.6 V, judged as it is
+    // (it used to read as its rounding, 95.0 %), and printed so.
+    expect(verdict(range(114.05))).toBe('under');
+    expect(range(114.05).voltageCheck.lowest.at).toBe('line-to-line A-B');
+    expect(range(114.05).warnings[0]!.message).toBe('line-to-line A-B at the board is 197.5 V, 94.97 % of nominal, outside ±5 % (c84-service-a)');
+    // 114.1 V is within both ways: 95.08 % and 197.63 V.
+    expect(verdict(range(114.1))).toBe('within');
     expect(verdict(range(113.9))).toBe('under');
   });
 

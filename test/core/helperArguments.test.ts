@@ -56,10 +56,13 @@ describe('judgeVoltage', () => {
     expect(refusal(() => judgeVoltage({ ...limits, underPercent: Number.NaN }, 97)).path).toBe('limits.underPercent');
   });
 
-  it('judges on the printed figure: 93.96 % prints 94.0 (within a −6 % band), 93.94 % prints 93.9 (under)', () => {
-    expect(judgeVoltage(limits, 93.96)).toBe('within');
-    expect(judgeVoltage(limits, 93.94)).toBe('under');
-    expect(judgeVoltage(limits, 110.06)).toBe('over');
+  it('judges the figure itself, past a round-off allowance of 0.001 %: 93.96 % is under a −6 % band, 93.9995 % on its edge', () => {
+    expect(judgeVoltage(limits, 93.96)).toBe('under');
+    expect(judgeVoltage(limits, 93.9995)).toBe('within');
+    expect(judgeVoltage(limits, 93.998)).toBe('under');
+    expect(judgeVoltage(limits, 110.0005)).toBe('within');
+    expect(judgeVoltage(limits, 110.002)).toBe('over');
+    expect(judgeVoltage(limits, 110.04)).toBe('over');
   });
 });
 

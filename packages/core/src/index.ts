@@ -80,7 +80,7 @@ export type { NeutralBreakPath, FollowNeutralBreakOptions } from './analysis/fol
 export { followNeutralBreak, withNeutralFault } from './analysis/followNeutralBreak.js';
 export type { NewtonOptions, NewtonOutcome } from './network/solveNetworkByNewton.js';
 export { solveNetworkByNewton } from './network/solveNetworkByNewton.js';
-export { WARNING_THRESHOLDS } from './analysis/boardWarnings.js';
+export { WARNING_THRESHOLDS, OPEN_NEUTRAL_BAND } from './analysis/boardWarnings.js';
 export { NOISE_FLOOR_RELATIVE } from './analysis/noiseFloor.js';
 export { SUPPLY_LIMITS } from './analysis/readSupplyState.js';
 export { sourceUnitsWords } from './analysis/sourceUnitsWords.js';
@@ -133,6 +133,7 @@ export type { InstallationCorrection, InstallationComparison, CorrectInstallatio
 export { correctInstallation, compareInstallationCorrections, installationBoardIndex } from './correction/correctInstallation.js';
 export type { InstallationEffect, BoardEffect, IncomerLineEffect, OtherBoardWarning, SupplyEffect } from './correction/installationEffect.js';
 export { installationEffect } from './correction/installationEffect.js';
+export { lowestVoltageChange, lowestInstallationVoltageChange } from './render/report/installationCorrectionSection.js';
 export { ORIGIN_POINT, meteringPoints, meteringPointIssues } from './correction/meteringPoint.js';
 export type * from './correction/correctionResult.js';
 export { arrangementDescriptions, arrangementNames, BUILD_VERDICT_WORDS, CORRECTION_CAUTIONS, meteringPointWords, reactorChanges, smallBranchWords, sparedBranchesWords } from './correction/correctionWording.js';
@@ -259,7 +260,7 @@ export type { MarkdownReport } from './render/report/renderReportMarkdown.js';
 export { renderReportMarkdown } from './render/report/renderReportMarkdown.js';
 export type { ProfileChart } from './render/report/profileSection.js';
 export { profileSection, installationProfileSections } from './render/report/profileSection.js';
-export { boardSectionIds } from './render/report/installationSections.js';
+export { boardSectionIds, lowestVoltagePercentText } from './render/report/installationSections.js';
 export { harmonicsSection } from './render/report/harmonicsSection.js';
 export { installationHarmonicsSections } from './render/report/installationHarmonicsSections.js';
 
@@ -282,10 +283,12 @@ export { PHASE_NAMINGS, labelIn, labellerOf, phaseLabels } from './board/convent
 export type { VoltageNotation, NotationReading } from './board/conventions/voltageNotation.js';
 export { readVoltageNotation, writeVoltageNotation, NOTATION_RATIO_TOLERANCE } from './board/conventions/voltageNotation.js';
 export type { VoltageLimits, VoltageLimitPreset, VoltageLimitPresetName } from './board/conventions/voltageLimits.js';
-export { VOLTAGE_LIMIT_PRESETS, judgeVoltage, bandVolts, bandVoltsWords, bandWords } from './board/conventions/voltageLimits.js';
+export { VOLTAGE_LIMIT_PRESETS, VOLTAGE_ROUND_OFF_PERCENT, judgeVoltage, bandVolts, bandVoltsWords, bandWords } from './board/conventions/voltageLimits.js';
+export type { BandSide, VoltageShown } from './board/conventions/voltageBesideBand.js';
+export { voltageBesideBand, percentBesideBand, percentBesideEdges } from './board/conventions/voltageBesideBand.js';
 export type { VoltageUnbalanceLimit } from './board/conventions/unbalanceLimits.js';
 export { VOLTAGE_UNBALANCE_LIMITS, unbalanceFigure } from './board/conventions/unbalanceLimits.js';
-export { judgedNominals } from './analysis/voltageCheck.js';
+export { judgedNominals, bandDecimalsOf } from './analysis/voltageCheck.js';
 export { judgedNominalOf, STANDARD_STAR_PAIRS } from './board/nominalVoltages.js';
 export { nominalVoltageWords, nonStandardNominalNote, sourceHeldLine, sourceVoltageWords } from './render/nominalVoltageWords.js';
 export type { Region, RegionBasis } from './board/conventions/region.js';

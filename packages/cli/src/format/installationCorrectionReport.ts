@@ -6,6 +6,8 @@ import {
   arrangementNames,
   banksPlacementWords,
   labellerOf,
+  lowestInstallationVoltageChange,
+  lowestVoltageChange,
   meteringPointWords,
   type BeforeAfter,
   type InstallationComparison,
@@ -52,7 +54,7 @@ function boardTable(e: InstallationEffect): string {
   const hasNeutral = e.boards.some((b) => b.neutralCurrentA !== null);
   const rows = e.boards.map((b) => [
     treeName(b.name, b.depth) + (b.hasEquipment ? ' *' : ''),
-    cell(b.lowestVoltagePercent, 1),
+    ((x) => `${x.before}→${x.after}`)(lowestVoltageChange(e, b)),
     cell(b.feeder.largestLineCurrentA, 1),
     ...(hasNeutral ? [cell(b.neutralCurrentA, 1)] : []),
     cell(b.vectorPf, 3),
@@ -97,7 +99,7 @@ function supplyLines(e: InstallationEffect): string {
     row('from the source', `${change(s.kW, 2)} kW, ${change(s.kvar, 2)} kvar, ${change(s.kVA, 2)} kVA`),
     row('PF at the source', change(s.pf, 3)),
     row('losses (source + feeders)', `${change(s.lossesKW, 3)} kW`),
-    row('lowest voltage', `${change(s.lowestVoltagePercent, 1)} % of nominal`),
+    row('lowest voltage', ((x) => `${x.before} → ${x.after} % of nominal`)(lowestInstallationVoltageChange(e))),
     ...(s.transformerLoadingPercent ? [row('transformer', `${change(s.transformerLoadingPercent, 0)} % of rated current`)] : []),
     ...(s.sourceUnitLoadingPercent ? [row('supply units', `${s.sourceUnitLoadingPercent.map((u) => `${label(u.winding)} ${change(u.loading, 0)} %`).join(', ')} of rated current`)] : []),
   ].join('\n');

@@ -7,6 +7,7 @@ import {
   energyTable,
   monthTable,
   OVER_RATING_CAUTION,
+  percentBeside,
   scenarioOverRating,
   scenarioTable,
   scenarioYearLine,
@@ -34,8 +35,8 @@ function boardTable(r: InstallationProfileResult): string {
       fixed(worst.maxA, 1),
       worst.ratingA === null ? '-' : fixed(worst.ratingA, 0),
       neutral ? fixed(neutral.maxA, 1) : '-',
-      fixed(lowest, 1),
-      fixed(highest, 1),
+      percentBeside(lowest, b.limits),
+      percentBeside(highest, b.limits),
       `${limitPercent(b.limits.voltageLowPercent)}-${limitPercent(b.limits.voltageHighPercent)}`,
       hours(b.before.hoursVoltageLow),
       hours(b.before.hoursVoltageHigh),
@@ -65,7 +66,7 @@ function boardSection(b: InstallationProfileBoard, label: PhaseLabeller): string
     section(`${b.board} — currents in the ${where}`),
     currentTable(b.before, label),
     section(`${b.board} — voltages at the board (% of nominal)`),
-    voltageTable(b.before, label),
+    voltageTable(b.before, label, b.limits),
     ...thresholdLines(b.before, b),
     `  energy through the board: ${Math.round(b.before.energy.kWhImport).toLocaleString('en-US')} kWh imported, billing power factor ${billingPowerFactorText(b.before.energy.billingPf)}`,
   ];
@@ -96,7 +97,7 @@ export function renderInstallationProfileReport(r: InstallationProfileResult, cu
     worstTable(main.before, main.limits.unbalance),
   ];
   if (r.bank && bankBoard) {
-    parts.push(section(`Automatic bank on ${r.bank.board} over the profile`), bankLines({ bank: r.bank, before: bankBoard.before }));
+    parts.push(section(`Automatic bank on ${r.bank.board} over the profile`), bankLines({ bank: r.bank, before: bankBoard.before, limits: bankBoard.limits }));
     const meter = r.bank.meter;
     if (meter)
       parts.push(
@@ -115,7 +116,7 @@ export function renderInstallationProfileReport(r: InstallationProfileResult, cu
 export function renderInstallationScenarioReport(r: InstallationScenarioResult, label: PhaseLabeller = labellerOf(r.phaseNames)): string {
   const parts = [`${r.installation} — scenarios (${fixed(r.hours, 0)} h), every board`, '  solved on the nodal path: every board and feeder at once in each scenario', ...banksInServiceLines(r.banksInService, 'scenario')];
   for (const b of r.boards) {
-    parts.push(section(`${b.board} — currents in the ${b.fedFrom === null ? 'supply to the main board' : `feeder from ${b.fedFrom}`}`), scenarioTable(b, label), scenarioYearLine(b));
+    parts.push(section(`${b.board} — currents in the ${b.fedFrom === null ? 'supply to the main board' : `feeder from ${b.fedFrom}`}`), scenarioTable(b, label, b.limits), scenarioYearLine(b));
     const band = `${limitPercent(b.limits.voltageLowPercent)}-${limitPercent(b.limits.voltageHighPercent)} %`;
     const from = b.limits.voltageLimitsFrom === 'profile.limits' ? 'profile.limits' : `the board's limits, ${b.limits.voltageLimitsFrom}`;
     parts.push(

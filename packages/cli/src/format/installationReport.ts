@@ -1,5 +1,5 @@
 /** InstallationResult → the text report of `trivar solve` on an installation: a summary per board and per feeder. */
-import { BANKS_IN_SERVICE_BASIS, bandWords, sourceHeldLine, bankInServiceWords, labelIn, unbalanceFigure, VOLTAGE_UNBALANCE_LIMITS, type InstallationResult } from '@trivar/core';
+import { BANKS_IN_SERVICE_BASIS, OPEN_NEUTRAL_BAND, lowestVoltagePercentText, percentBesideBand, bandWords, sourceHeldLine, bankInServiceWords, labelIn, unbalanceFigure, VOLTAGE_UNBALANCE_LIMITS, type InstallationResult } from '@trivar/core';
 import { fixed, renderTable, section } from './textTable.js';
 import { treeName } from './boardTree.js';
 import { renderSolveReport } from './solveReport.js';
@@ -51,8 +51,8 @@ function boardTable(r: InstallationResult): string {
     // The voltages the verdict beside them judges (line-to-neutral, line-to-line, at the loads).
     return [
       treeName(b.name, b.depth),
-      fixed(res.voltageCheck.lowest.percent, 1),
-      fixed(res.voltageCheck.highest.percent, 1),
+      percentBesideBand(res.voltageCheck.limits, res.voltageCheck.lowest.percent),
+      percentBesideBand(res.voltageCheck.limits, res.voltageCheck.highest.percent),
       res.neutral ? fixed(res.neutral.current.magnitude, 1) : res.board.withoutNeutral ? '-' : '',
       res.unbalance ? fixed(unbalanceFigure(limit, res.unbalance), 2) : '',
       fixed(res.totals.kW, 2),
@@ -127,8 +127,8 @@ function openNeutralSummary(r: InstallationResult): string | null {
     return [
       b.name,
       s.barVoltage ? fixed(s.barVoltage.magnitude, 1) : '',
-      s.highestPercent === null ? '' : fixed(s.highestPercent, 1),
-      s.lowestPercent === null ? '' : fixed(s.lowestPercent, 1),
+      s.highestPercent === null ? '' : percentBesideBand(OPEN_NEUTRAL_BAND, s.highestPercent),
+      s.lowestPercent === null ? '' : percentBesideBand(OPEN_NEUTRAL_BAND, s.lowestPercent),
       s.reachedFromIntact ? 'reached' : 'worst found',
     ];
   });
@@ -186,7 +186,7 @@ export function renderInstallationReport(r: InstallationResult, options: Install
         `  losses      ${fixed(t.lossesKW, 3)} kW  (${ideal ? 'every feeder' : 'source windings and every feeder'})`,
         `  from source ${fixed(t.sourceKW, 3)} kW  ${fixed(t.sourceKvar, 3)} kvar`,
         ...(ideal ? [IDEAL_SOURCE_LINE] : []),
-        `  lowest voltage ${fixed(t.lowestVoltagePercent, 1)} % of nominal, at ${t.lowestVoltageBoard} (${t.lowestVoltageAt})`,
+        `  lowest voltage ${lowestVoltagePercentText(r)} % of nominal, at ${t.lowestVoltageBoard} (${t.lowestVoltageAt})`,
         limitsLine(r),
         ...banksLine(r),
       ].join('\n'),

@@ -1,5 +1,5 @@
 /** The broken-neutral study as a section of `trivar solve`. */
-import { OPEN_NEUTRAL_METHOD, type OpenNeutralLoadReading, type OpenNeutralStudy } from '@trivar/core';
+import { OPEN_NEUTRAL_BAND, OPEN_NEUTRAL_METHOD, voltageBesideBand, type OpenNeutralLoadReading, type OpenNeutralStudy } from '@trivar/core';
 import { fixed, renderTableWithin } from './textTable.js';
 import { REPORT_WIDTH, wrapText } from './wrapText.js';
 
@@ -9,11 +9,13 @@ export function openNeutralBlock(study: OpenNeutralStudy, label: (phase: string)
   if (!study.applicable) return wrapText(`not applicable: ${study.note ?? ''}`, '  ');
   const other = study.otherStates[0];
   const impedance = study.impedanceModel;
+  // The flagged figures printed with the decimals that show their side of the band they are flagged against.
+  const shown = (l: { voltage: number; voltagePercent: number }) => voltageBesideBand(OPEN_NEUTRAL_BAND, { volts: l.voltage, percent: l.voltagePercent });
   const rows = study.loads.map((l, k) => [
     l.name,
     label(l.phase),
-    `${fixed(l.voltage, 1)}${l.belowLowVoltageRule ? '*' : ''}`,
-    fixed(l.voltagePercent, 1),
+    `${shown(l).volts}${l.belowLowVoltageRule ? '*' : ''}`,
+    shown(l).percent,
     flagWord(l.flag),
     ...(impedance ? [fixed(impedance.loads[k]!.voltage, 1), fixed(impedance.loads[k]!.voltagePercent, 1)] : []),
     ...(other ? [fixed(other.loads[k]!.voltage, 1), fixed(other.loads[k]!.voltagePercent, 1)] : []),

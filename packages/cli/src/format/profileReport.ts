@@ -1,5 +1,5 @@
 /** ProfileResult → the text report of `trivar profile`. */
-import { billingPowerFactorText, contactorLifeWords, labellerOf, type PhaseLabeller, type ProfileBankResult, type ProfileResult, type ProfileSummary, type ScenarioResult, type BoardScenarios, type VoltageUnbalanceLimit } from '@trivar/core';
+import { billingPowerFactorText, contactorLifeWords, labellerOf, percentBesideEdges, type PhaseLabeller, type ProfileBankResult, type ProfileResult, type ProfileSummary, type ScenarioResult, type BoardScenarios, type VoltageUnbalanceLimit } from '@trivar/core';
 import { fixed, renderTable, section } from './textTable.js';
 import { wrapText } from './wrapText.js';
 
@@ -44,10 +44,16 @@ export function currentTable(s: ProfileSummary, label: PhaseLabeller): string {
   );
 }
 
-export function voltageTable(s: ProfileSummary, label: PhaseLabeller): string {
+/** The band the hours below and above are counted against, % of nominal. */
+export type VoltageEdges = Pick<ProfileResult['limits'], 'voltageLowPercent' | 'voltageHighPercent'>;
+
+/** A % of nominal beside the hours outside `edges`, with the decimals that show its side of them (percentBesideEdges). */
+export const percentBeside = (percent: number, edges: VoltageEdges) => percentBesideEdges(percent, edges.voltageLowPercent, edges.voltageHighPercent);
+
+export function voltageTable(s: ProfileSummary, label: PhaseLabeller, edges: VoltageEdges): string {
   return renderTable(
     [{ header: 'voltage', align: 'left' }, { header: 'lowest %' }, { header: 'at', align: 'left' }, { header: 'highest %' }, { header: 'at', align: 'left' }],
-    s.voltages.map((v) => [label(v.phase), fixed(v.minPercent, 1), v.minAt, fixed(v.maxPercent, 1), v.maxAt]),
+    s.voltages.map((v) => [label(v.phase), percentBeside(v.minPercent, edges), v.minAt, percentBeside(v.maxPercent, edges), v.maxAt]),
   );
 }
 
@@ -114,7 +120,7 @@ export function monthTable(s: ProfileSummary, after: ProfileSummary | null, curr
   return renderTable(head, rows);
 }
 
-export function bankLines(r: { readonly bank: ProfileResult['bank']; readonly before: ProfileSummary }): string {
+export function bankLines(r: { readonly bank: ProfileResult['bank']; readonly before: ProfileSummary; readonly limits: VoltageEdges }): string {
   const b = r.bank!;
   const set = b.settings;
   const sizing =
@@ -159,7 +165,7 @@ export function bankLines(r: { readonly bank: ProfileResult['bank']; readonly be
           `  board PF below ${pf(set.targetPf)} with the bank: ${hours(b.belowTarget.hours)} h of import, ${hours(b.belowTarget.stepTooCoarseHours)} h of them with no step small enough to stay under ${pf(set.upperPf!)} (steps coarse for this band at that load)`,
         ]
       : []),
-    `  largest voltage rise from the bank ${fixed(b.voltageRisePercent, 2)} % of nominal (${b.voltageRiseAt}); highest voltage with it ${fixed(Math.max(...b.after.voltages.map((v) => v.maxPercent)), 1)} %`,
+    `  largest voltage rise from the bank ${fixed(b.voltageRisePercent, 2)} % of nominal (${b.voltageRiseAt}); highest voltage with it ${percentBeside(Math.max(...b.after.voltages.map((v) => v.maxPercent)), r.limits)} %`,
   ];
   return lines.join('\n');
 }
@@ -192,7 +198,7 @@ export function renderProfileReport(r: ProfileResult, currency: string, label: P
     section('Currents'),
     currentTable(s, label),
     section('Phase voltage at the board (% of nominal)'),
-    voltageTable(s, label),
+    voltageTable(s, label, r.limits),
     ...thresholdLines(s, r),
     section('Energy'),
     energyTable(s, label),
@@ -206,8 +212,12 @@ export function renderProfileReport(r: ProfileResult, currency: string, label: P
   return `${parts.join('\n')}\n`;
 }
 
-/** A board's scenarios as a table, a row per scenario. */
-export function scenarioTable(r: BoardScenarios, label: PhaseLabeller = LETTERED): string {
+/**
+ * A board's scenarios as a table, a row per scenario.
+ * @param edges the band scenarios are said to be outside of, where the report says so (installations)
+ */
+export function scenarioTable(r: BoardScenarios, label: PhaseLabeller = LETTERED, edges?: VoltageEdges): string {
+  const percent = (x: number) => (edges ? percentBeside(x, edges) : fixed(x, 1));
   const phases = r.scenarios[0]?.lineA.length ?? 0;
   const names = (['A', 'B', 'C'] as const).slice(0, phases).map(label);
   const hasNeutral = r.scenarios.some((s) => s.neutralA !== null);
@@ -229,8 +239,8 @@ export function scenarioTable(r: BoardScenarios, label: PhaseLabeller = LETTERED
       fixed(s.hours, 0),
       ...s.lineA.map((a) => fixed(a, 1)),
       ...(hasNeutral ? [s.neutralA === null ? '-' : fixed(s.neutralA, 1)] : []),
-      fixed(s.lowestVoltagePercent, 1),
-      fixed(s.highestVoltagePercent, 1),
+      percent(s.lowestVoltagePercent),
+      percent(s.highestVoltagePercent),
       s.unbalancePercent === null ? '-' : fixed(s.unbalancePercent, 2),
       fixed(s.kW, 1),
       fixed(s.kvar, 1),

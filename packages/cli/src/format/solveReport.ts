@@ -1,5 +1,5 @@
 /** BoardResult → the human-readable report of `trivar solve`. */
-import { bandVoltsWords, nominalVoltageWords, nonStandardNominalNote, sourceHeldLine, bandWords, judgedNominals, labelIn, regionWords, signedPfText, assumedPfNote, sourceUnitsWords, type BoardResult } from '@trivar/core';
+import { bandDecimalsOf, percentBesideBand, voltageBesideBand, bandVoltsWords, nominalVoltageWords, nonStandardNominalNote, sourceHeldLine, bandWords, judgedNominals, labelIn, regionWords, signedPfText, assumedPfNote, sourceUnitsWords, type BoardResult } from '@trivar/core';
 import { fixed, renderTable, renderTableWithin, section } from './textTable.js';
 import { REPORT_WIDTH, wrapText } from './wrapText.js';
 import { exportSentence, isExport, pfCell, varWords } from './powerFlowWords.js';
@@ -30,11 +30,19 @@ export const labeller = (r: BoardResult) => (term: string) => labelIn(r.conventi
 /** The region's words for this board (center tap and grounded conductor in North America). */
 export const wordsOf = (r: BoardResult) => regionWords(r.conventions.region, r.board.system as Parameters<typeof regionWords>[1]);
 
-/** The voltage-limit verdict, judged on the printed figures as the warnings are. */
+/** The voltage-limit verdict, judged as the warnings are; its lowest and highest printed with the decimals that show their side. */
 export function voltageVerdictLine(r: BoardResult): string {
   const c = r.voltageCheck;
   const verdict = { within: 'every voltage within', under: 'BELOW the lower limit', over: 'ABOVE the upper limit', 'under-and-over': 'OUTSIDE both limits' }[c.verdict];
-  return `limits ${bandWords(c.limits)} (${c.limits.preset}): ${verdict}; lowest ${fixed(c.lowest.percent, 1)} % at ${c.lowest.at}, highest ${fixed(c.highest.percent, 1)} % at ${c.highest.at}`;
+  return `limits ${bandWords(c.limits)} (${c.limits.preset}): ${verdict}; lowest ${percentBesideBand(c.limits, c.lowest.percent)} % at ${c.lowest.at}, highest ${percentBesideBand(c.limits, c.highest.percent)} % at ${c.highest.at}`;
+}
+
+/**
+ * A voltage and its % of nominal as the tables print them: beside the board's band (voltageBesideBand)
+ * where the verdict judges it, else at 0.1.
+ */
+function voltageCells(r: BoardResult, judged: boolean, reading: { volts: number; percent: number }): { volts: string; percent: string } {
+  return judged ? voltageBesideBand(r.voltageCheck.limits, reading) : { volts: fixed(reading.volts, 1), percent: fixed(reading.percent, 1) };
 }
 
 /** The board's system; a board no neutral reaches says so, whatever the supply's system. */
@@ -61,11 +69,13 @@ const currentAngle = (i: { magnitude: number; angleDeg: number }) => (fixed(i.ma
 
 function phaseTable(r: BoardResult): string {
   const label = labeller(r);
+  // Phase voltages are judged where a neutral gives them meaning (voltageCheck.ts).
+  const phasesJudged = r.neutral !== null || r.lineToLine.length === 0;
   const rows = r.phases.map((p) => [
     label(p.phase),
-    fixed(p.voltage.magnitude, 1),
+    voltageCells(r, phasesJudged, { volts: p.voltage.magnitude, percent: p.voltagePercent }).volts,
     fixed(p.voltage.angleDeg, 1),
-    fixed(p.voltagePercent, 1),
+    voltageCells(r, phasesJudged, { volts: p.voltage.magnitude, percent: p.voltagePercent }).percent,
     fixed(p.voltageDropPercent, 1),
     fixed(p.current.magnitude, 1),
     currentAngle(p.current),
@@ -106,7 +116,12 @@ function phaseTable(r: BoardResult): string {
     ],
     rows,
   );
-  const ll = r.lineToLine.map((l) => `${label(l.pair)} ${fixed(l.voltage.magnitude, 1)} V (${fixed(l.voltagePercent, 1)} %)`).join('   ');
+  const ll = r.lineToLine
+    .map((l) => {
+      const shown = voltageCells(r, true, { volts: l.voltage.magnitude, percent: l.voltagePercent });
+      return `${label(l.pair)} ${shown.volts} V (${shown.percent} %)`;
+    })
+    .join('   ');
   const notes = [dropDefinition(r)];
   const words = wordsOf(r);
   if (r.neutral)
@@ -132,12 +147,13 @@ function loadTable(r: BoardResult): string {
   const label = labeller(r);
   const rows = r.loads.map((l) => {
     const worst = l.branches.reduce((a, b) => (Math.abs(b.voltagePercent - 100) > Math.abs(a.voltagePercent - 100) ? b : a));
+    const shown = voltageCells(r, true, { volts: worst.voltage.magnitude, percent: worst.voltagePercent });
     return [
       l.name,
       label(l.connection),
       MODEL_SHORT[l.model] ?? l.model,
-      l.energised ? fixed(worst.voltage.magnitude, 1) : 'dead',
-      l.energised ? fixed(worst.voltagePercent, 1) : '',
+      l.energised ? shown.volts : 'dead',
+      l.energised ? shown.percent : '',
       fixed(l.currentA, 1),
       fixed(l.kW, 2),
       fixed(l.kvar, 2),
@@ -299,7 +315,7 @@ export function renderSolveReport(r: BoardResult): string {
   parts.push(
     section('Voltage limits') +
       wrapText(voltageVerdictLine(r), '  ') +
-      `\n${wrapText(`on this board ${bandVoltsWords(limits, judgedNominals(r))}`, '  ')}\n${wrapText(limits.source, '  (', '   ', REPORT_WIDTH - 1)})` +
+      `\n${wrapText(`on this board ${bandVoltsWords(limits, judgedNominals(r), bandDecimalsOf(r))}`, '  ')}\n${wrapText(limits.source, '  (', '   ', REPORT_WIDTH - 1)})` +
       (nonStandard ? `\n${wrapText(nonStandard, '  ! ', '    ')}` : ''),
   );
   if (r.openNeutral) parts.push(section('If the neutral conductor broke') + openNeutralBlock(r.openNeutral, labeller(r), wordsOf(r).sourceNeutralPoint));

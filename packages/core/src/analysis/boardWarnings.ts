@@ -5,7 +5,8 @@
 import type { BoardWarning, NeutralReading, PhaseReading, LoadReading, SourceUnitReading, TransformerReading, UnbalanceReading, LineToLineReading } from './boardResult.js';
 import { regionWords } from '../board/conventions/regionWords.js';
 import { boardVoltagePoints } from './voltageCheck.js';
-import { bandWords, judgeVoltage, presetLimits, type VoltageLimits } from '../board/conventions/voltageLimits.js';
+import { bandWords, customLimits, judgeVoltage, presetLimits, type VoltageLimits } from '../board/conventions/voltageLimits.js';
+import { voltageBesideBand } from '../board/conventions/voltageBesideBand.js';
 import type { Region } from '../board/conventions/region.js';
 import { unbalanceFigure, VOLTAGE_UNBALANCE_LIMITS } from '../board/conventions/unbalanceLimits.js';
 import { circuitNumberMismatches, overlappingCircuitPositions, sharedCircuitNumbers } from './panelNumbering.js';
@@ -25,6 +26,12 @@ export const WARNING_THRESHOLDS = {
    */
   continuousBreakerShare: 0.8,
 } as const;
+
+/** The open-neutral study's band as limits: its flags judged, and its figures printed, as every voltage verdict's are. */
+export const OPEN_NEUTRAL_BAND: VoltageLimits = {
+  ...customLimits(WARNING_THRESHOLDS.voltageBandPercent, WARNING_THRESHOLDS.voltageBandPercent),
+  source: `the open-neutral study's flags: ±${WARNING_THRESHOLDS.voltageBandPercent} % of nominal (EN 50160 LV band)`,
+};
 
 /**
  * Relative margin a comparison of two currents allows for round-off. Quantities equal in
@@ -155,24 +162,29 @@ export function boardWarnings(input: {
   const boardVoltages = boardVoltagePoints(phases, input.lineToLine ?? [], input.hasNeutral ?? true, label);
   for (const v of boardVoltages) {
     const side = judgeVoltage(limits, v.percent);
-    if (side !== 'within')
+    if (side !== 'within') {
+      // Printed with the decimals that show it outside: 253.1 V is 110.04 %, not a "110.0 %" on the edge.
+      const shown = voltageBesideBand(limits, v);
       out.push({
         code: side === 'over' ? 'board-overvoltage' : 'board-undervoltage',
-        message: `${v.at} at the board is ${fmt(v.volts)} V, ${fmt(v.percent)} % of nominal, outside ${band} (${limits.preset})`,
+        message: `${v.at} at the board is ${shown.volts} V, ${shown.percent} % of nominal, outside ${band} (${limits.preset})`,
         value: v.percent,
         threshold: limitOf(side),
       });
+    }
   }
   for (const load of loads)
     for (const b of load.branches) {
       const side = judgeVoltage(limits, b.voltagePercent);
-      if (load.energised && side !== 'within')
+      if (load.energised && side !== 'within') {
+        const shown = voltageBesideBand(limits, { volts: b.voltage.magnitude, percent: b.voltagePercent });
         out.push({
           code: side === 'over' ? 'overvoltage' : 'undervoltage',
-          message: `load "${load.name}" (${label(b.from)}-${label(b.to)}) sees ${fmt(b.voltage.magnitude)} V, ${fmt(b.voltagePercent)} % of nominal, outside ${band} (${limits.preset})`,
+          message: `load "${load.name}" (${label(b.from)}-${label(b.to)}) sees ${shown.volts} V, ${shown.percent} % of nominal, outside ${band} (${limits.preset})`,
           value: b.voltagePercent,
           threshold: limitOf(side),
         });
+      }
     }
   // A circuit drawing more than its breaker allows: the schedule would show the two side by side.
   // A circuit that generates (negative kW, PV or a generator) is judged by the output-circuit rule, not the load rule.

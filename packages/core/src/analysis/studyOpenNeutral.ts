@@ -16,7 +16,8 @@ import { solveNetwork, terminalVoltage, type NetworkSolution, type SolveOptions 
 import { solveNetworkByNewton } from '../network/solveNetworkByNewton.js';
 import { followNeutralBreak, withNeutralFault } from './followNeutralBreak.js';
 import type { OpenNeutralLoadReading, OpenNeutralState, OpenNeutralStudy, OpenNeutralWithoutRule } from './boardResult.js';
-import { WARNING_THRESHOLDS } from './boardWarnings.js';
+import { OPEN_NEUTRAL_BAND } from './boardWarnings.js';
+import { judgeVoltage } from '../board/conventions/voltageLimits.js';
 import { regionWords } from '../board/conventions/regionWords.js';
 import { conventionsOf } from '../board/conventions/boardConventions.js';
 import { labellerOf } from '../board/conventions/phaseNames.js';
@@ -33,15 +34,15 @@ const RULE_OFF_THRESHOLD = 0.05;
 /** What one line-to-neutral branch sees across it. */
 /** `nominalV`: the system nominal the branch is judged at (judgedBranchNominal). */
 function loadReading(name: string, b: LoadBranch, voltage: ComplexValue, threshold: number, nominalV: number, board?: string): OpenNeutralLoadReading {
-  const band = WARNING_THRESHOLDS.voltageBandPercent;
   const percent = (100 * abs(voltage)) / nominalV;
+  const side = judgeVoltage(OPEN_NEUTRAL_BAND, percent);
   return {
     name: board === undefined ? name : `${name} (${board})`,
     ...(board === undefined ? {} : { board }),
     phase: (b.to === 'N' ? b.from : b.to) as PhaseId,
     voltage: abs(voltage),
     voltagePercent: percent,
-    flag: percent > 100 + band ? 'over' : percent < 100 - band ? 'under' : 'ok',
+    flag: side === 'within' ? 'ok' : side,
     belowLowVoltageRule: b.zip.z < 1 && percent < 100 * threshold,
   };
 }

@@ -1,10 +1,12 @@
 /**
  * A board's voltages against its voltage limits: the board's own (line-to-neutral where
  * it has a neutral, else line-to-line) and every energised load's. The verdict and the
- * voltage warnings come from the same judgement of the printed figures, so they never
- * disagree with each other or with the percentages beside them.
+ * voltage warnings come from the same judgement (judgeVoltage: the figure itself, beyond
+ * round-off), and reports print a figure near an edge with the decimals that show its side
+ * (voltageBesideBand.ts), so they never disagree with each other or with the figures beside them.
  */
 import { judgeVoltage, type VoltageLimits } from '../board/conventions/voltageLimits.js';
+import { voltageBesideBand } from '../board/conventions/voltageBesideBand.js';
 import { checkNumberArgument } from '../_internal/argumentChecks.js';
 import { argumentError, isObject } from '../board/modelGuards.js';
 import type { BoardResult, LineToLineReading, LoadReading, PhaseReading } from './boardResult.js';
@@ -21,7 +23,7 @@ export interface VoltageCheck {
   readonly boardVoltages: 'line-to-neutral' | 'line-to-line';
   readonly lowest: VoltageExtreme;
   readonly highest: VoltageExtreme;
-  /** `within` when every board and load voltage is inside the limits (as printed, 0.1 %). */
+  /** `within` when every board and load voltage is inside the limits (beyond round-off, VOLTAGE_ROUND_OFF_PERCENT). */
   readonly verdict: 'within' | 'under' | 'over' | 'under-and-over';
 }
 
@@ -83,4 +85,22 @@ export function judgedNominals(result: Pick<BoardResult, 'board' | 'neutral' | '
     lineToNeutralV: result.neutral !== null || result.lineToLine.length === 0 ? b.nominalLineToNeutralV : null,
     lineToLineV: b.nominalLineToLineV !== null && result.phases.length > 1 ? b.nominalLineToLineV : null,
   };
+}
+
+/**
+ * The decimals a board's band line prints each kind of its ends in V with: 1, or as many as a judged
+ * voltage of that kind needed beside it to show its side of an edge (voltageBesideBand), so the band
+ * and the figures read alike. For bandVoltsWords.
+ */
+export function bandDecimalsOf(result: Pick<BoardResult, 'voltageCheck' | 'phases' | 'lineToLine' | 'neutral' | 'loads'>): { lineToNeutral: number; lineToLine: number } {
+  const limits = result.voltageCheck.limits;
+  const most = { lineToNeutral: 1, lineToLine: 1 };
+  const take = (kind: keyof typeof most, volts: number, percent: number) => {
+    most[kind] = Math.max(most[kind], voltageBesideBand(limits, { volts, percent }).voltsDecimals);
+  };
+  if (result.neutral !== null || result.lineToLine.length === 0) for (const p of result.phases) take('lineToNeutral', p.voltage.magnitude, p.voltagePercent);
+  for (const l of result.lineToLine) take('lineToLine', l.voltage.magnitude, l.voltagePercent);
+  for (const load of result.loads)
+    if (load.energised) for (const b of load.branches) take(b.to === 'N' || b.to.startsWith('star') ? 'lineToNeutral' : 'lineToLine', b.voltage.magnitude, b.voltagePercent);
+  return most;
 }

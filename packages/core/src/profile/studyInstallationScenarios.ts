@@ -19,7 +19,7 @@ import { clearRoundOff, conductorFloorA } from './intervalRoundOff.js';
 import { ambiguousLoadIssue, bankPartIssue, boardNamesOf, flattenLoads, loadLookup } from './installationColumns.js';
 import { allocateBoardFigures, compileInstallationBatch, solveInstallationBatch } from './installationBatch.js';
 import type { ProfileSpec } from './profileSpec.js';
-import { asPrinted } from '../board/conventions/voltageLimits.js';
+import { aboveBandEdge, belowBandEdge } from '../board/conventions/voltageLimits.js';
 import { resolveLimits } from './studyProfile.js';
 import type { ResolvedLimits } from './summariseFigures.js';
 import { readBoardScenarios, scenarioDrivers, scenarioHours, type BoardScenarios } from './studyScenarios.js';
@@ -125,7 +125,7 @@ export function studyInstallationScenarios(installation: Installation, profile: 
         board: name,
         fedFrom: b === 0 ? null : names[installation.subBoards[b - 1]!.fedFrom]!,
         limits: { voltageLowPercent, voltageHighPercent, voltageLimitsFrom },
-        outsideBand: read.scenarios.filter((r) => asPrinted(r.lowestVoltagePercent) < voltageLowPercent || asPrinted(r.highestVoltagePercent) > voltageHighPercent).map((r) => r.name),
+        outsideBand: read.scenarios.filter((r) => belowBandEdge(r.lowestVoltagePercent, voltageLowPercent) || aboveBandEdge(r.highestVoltagePercent, voltageHighPercent)).map((r) => r.name),
         ...read,
       };
     }),

@@ -4,7 +4,7 @@
  */
 import type { VoltageUnbalanceLimit } from '../board/conventions/unbalanceLimits.js';
 import { SUPPLY_LIMITS } from '../analysis/readSupplyState.js';
-import { asPrinted, type VoltageLimits } from '../board/conventions/voltageLimits.js';
+import { aboveBandEdge, belowBandEdge, type VoltageLimits } from '../board/conventions/voltageLimits.js';
 import { lineRatingOf, type Board } from '../board/boardModel.js';
 import { lineToLinePairs, type IntervalFigures } from './solveBatch.js';
 import { countWhere, maximumOf, minimumOf, percentilesOf, topIndices } from './intervalStatistics.js';
@@ -159,9 +159,9 @@ export function summariseFigures(f: IntervalFigures, ctx: SummaryContext): Profi
       if (percent < lo) lo = percent;
       if (percent > hi) hi = percent;
     }
-    // Judged as printed (0.1 %), as the board's voltage verdict is, so the lowest and highest printed beside the hours agree with them.
-    if (asPrinted(lo) < limits.voltageLowPercent) low++;
-    if (asPrinted(hi) > limits.voltageHighPercent) high++;
+    // The board verdict's judgement (beyond round-off), so an interval counted here is one a solve of it calls outside.
+    if (belowBandEdge(lo, limits.voltageLowPercent)) low++;
+    if (aboveBandEdge(hi, limits.voltageHighPercent)) high++;
     // A collapse is a phase below half its nominal (the supply's rule), whichever voltages are judged.
     let phaseLow = Number.POSITIVE_INFINITY;
     for (const col of f.phaseV) if (col[i]! < phaseLow) phaseLow = col[i]!;

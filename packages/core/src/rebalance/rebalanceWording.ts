@@ -1,6 +1,7 @@
 /** Every sentence a rebalancing report carries, in one place. */
 import type { PhaseLabel } from '../board/conventions/phaseNames.js';
 import { bandWords } from '../board/conventions/voltageLimits.js';
+import { percentBesideBand } from '../board/conventions/voltageBesideBand.js';
 import type { VoltageCheck } from '../analysis/voltageCheck.js';
 import { BANKS_IN_SERVICE_BASIS } from '../analysis/banksInServiceWords.js';
 import { groupDigits } from '../_internal/groupDigits.js';
@@ -14,8 +15,9 @@ const VERDICT_WORDS: Record<VoltageCheck['verdict'], string> = {
 
 /** "lowest 97.4 % (phase B)" or the highest, whichever side the verdict names; both for within. */
 function extremesWords(check: VoltageCheck): string {
-  const low = `lowest ${check.lowest.percent.toFixed(1)} % (${check.lowest.at})`;
-  const high = `highest ${check.highest.percent.toFixed(1)} % (${check.highest.at})`;
+  // Beside the verdict: a figure near an edge with the decimals that show its side (voltageBesideBand.ts).
+  const low = `lowest ${percentBesideBand(check.limits, check.lowest.percent)} % (${check.lowest.at})`;
+  const high = `highest ${percentBesideBand(check.limits, check.highest.percent)} % (${check.highest.at})`;
   return check.verdict === 'under' ? low : check.verdict === 'over' ? high : `${low}, ${high}`;
 }
 

@@ -5,6 +5,7 @@
  * voltage drop. Where each piece goes is oneLineLayout.ts's job (a tree while
  * the installation is narrow, a ladder when it is wide); this file draws.
  */
+import { percentBesideBand } from '../board/conventions/voltageBesideBand.js';
 import type { InstallationResult, FeederReading } from '../analysis/installationResult.js';
 import { layOutOneLine, SUPPLY_HALF_HEIGHT } from './oneLineLayout.js';
 import { INK, MUTED_INK, GRID_COLOUR } from './palette.js';
@@ -152,7 +153,9 @@ export function renderOneLineDiagram(result: InstallationResult, options: OneLin
     const hi = r.voltageCheck.highest.percent;
     const warnings = r.warnings.length;
     const isLowest = p.board.name === lowest;
-    const detail1 = `V ${fixed(lo, 1)}–${fixed(hi, 1)} %nom${isLowest ? ' · lowest' : ''}`;
+    // Beside the board's warnings: a figure near an edge with the decimals that show its side (voltageBesideBand.ts).
+    const limits = r.voltageCheck.limits;
+    const detail1 = `V ${percentBesideBand(limits, lo)}–${percentBesideBand(limits, hi)} %nom${isLowest ? ' · lowest' : ''}`;
     const detail2 = `${fixed(r.totals.kW, 1)} kW own${warnings ? ` · ${warnings} warning${warnings === 1 ? '' : 's'}` : ''}`;
     const inner = L.boxWidth - 14;
     parts.push(

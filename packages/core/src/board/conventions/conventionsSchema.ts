@@ -2,9 +2,9 @@
 import * as z from 'zod';
 import { PHASE_NAMINGS } from './phaseNames.js';
 import { REGIONS } from './region.js';
-import { VOLTAGE_LIMIT_PERCENT, VOLTAGE_LIMIT_PRESETS, VOLTAGE_LIMIT_PRESET_NAMES } from './voltageLimits.js';
+import { bandWords, presetLimits, VOLTAGE_LIMIT_PERCENT, VOLTAGE_LIMIT_PRESET_NAMES } from './voltageLimits.js';
 
-const presetWords = VOLTAGE_LIMIT_PRESET_NAMES.map((n) => `${n}: ${VOLTAGE_LIMIT_PRESETS[n].underPercent === VOLTAGE_LIMIT_PRESETS[n].overPercent ? `±${VOLTAGE_LIMIT_PRESETS[n].overPercent}` : `−${VOLTAGE_LIMIT_PRESETS[n].underPercent}/+${VOLTAGE_LIMIT_PRESETS[n].overPercent}`} %`).join('; ');
+const presetWords = VOLTAGE_LIMIT_PRESET_NAMES.map((n) => `${n}: ${bandWords(presetLimits(n))}`).join('; ');
 
 const percentBand = z.number().min(VOLTAGE_LIMIT_PERCENT.min).max(VOLTAGE_LIMIT_PERCENT.max);
 

@@ -3,8 +3,8 @@
  * custom percentages of nominal. Each preset names the document it follows and how
  * far its values were checked (see METHODS.md §12).
  *
- * A figure is judged as printed: rounded to 0.1 % of nominal first, so a report never
- * shows "95.0 %" beside a verdict that 95 % is outside a −5 % limit.
+ * A figure is judged as it is, beyond a round-off allowance (VOLTAGE_ROUND_OFF_PERCENT); a report
+ * prints a figure near an edge with the decimals that show its side (voltageBesideBand.ts).
  */
 import type { Region } from './region.js';
 import { argumentIssueError, checkNumberArgument } from '../../_internal/argumentChecks.js';
@@ -31,9 +31,11 @@ export const VOLTAGE_LIMIT_PRESETS = {
     source: 'ANSI C84.1 Range A, service voltage: ±5 % of nominal (±5 % at service confirmed secondary; exact table from memory)',
   },
   'c84-service-b': {
-    underPercent: 8.3,
-    overPercent: 5.8,
-    source: 'ANSI C84.1 Range B, service voltage: −8.3 %/+5.8 % of nominal (from memory)',
+    // The standard's volts on a 120 V base, as exact fractions: a rounded −8.3/+5.8 % would put 110 V and 127 V
+    // themselves outside, now that a figure is judged as it is.
+    underPercent: (100 * 10) / 120,
+    overPercent: (100 * 7) / 120,
+    source: 'ANSI C84.1 Range B, service voltage: 110–127 V on a 120 V base, −8.333 %/+5.833 % of nominal (from memory)',
   },
   'uk-supply': {
     underPercent: 6,
@@ -68,10 +70,20 @@ export function customLimits(underPercent: number, overPercent: number): Voltage
   return { preset: 'custom', underPercent, overPercent, source: `custom limits from the file: −${underPercent} %/+${overPercent} % of nominal` };
 }
 
-/** A percentage of nominal as a report prints it (0.1 %), the figure the limits judge. */
-export const asPrinted = (percent: number): number => Math.round(percent * 10) / 10;
+/**
+ * How far past a band edge a voltage may lie and still be judged on it, % of nominal: round-off of the
+ * solve and of nominal × (1 ± limit) (1e-13 relative), not a tolerance. 0.001 % is 2.3 mV at 230 V, far
+ * below what a meter reads (a 0.1 V display step is 0.04 %); and a figure judged past it shows its side
+ * within three decimals of a percentage (and of volts from a 100 V nominal up).
+ */
+export const VOLTAGE_ROUND_OFF_PERCENT = 0.001;
 
-/** Where a voltage (% of nominal) stands against the limits, judged on its printed figure. */
+/** Below a band's lower edge (% of nominal) by more than round-off: the one test every count and verdict uses. */
+export const belowBandEdge = (percent: number, lowPercent: number): boolean => percent < lowPercent - VOLTAGE_ROUND_OFF_PERCENT;
+/** Above a band's upper edge (% of nominal) by more than round-off. */
+export const aboveBandEdge = (percent: number, highPercent: number): boolean => percent > highPercent + VOLTAGE_ROUND_OFF_PERCENT;
+
+/** Where a voltage (% of nominal) stands against the limits: judged on the figure itself, beyond round-off. */
 export function judgeVoltage(limits: VoltageLimits, percent: number): 'under' | 'over' | 'within' {
   // NaN compares false with both ends and would read as within the limits. Checked inline first: this runs
   // for every branch of every board and interval, so the good path builds no closure and no path text.
@@ -82,17 +94,11 @@ export function judgeVoltage(limits: VoltageLimits, percent: number): 'under' | 
     checkNumberArgument(under, 'limits.underPercent', 'a finite percentage below nominal, from 0 to 100', (x) => x >= 0 && x <= 100);
     checkNumberArgument(over, 'limits.overPercent', 'a finite percentage above nominal, 0 or more', (x) => x >= 0);
   }
-  const p = asPrinted(percent);
-  if (p < 100 - limits.underPercent) return 'under';
-  if (p > 100 + limits.overPercent) return 'over';
+  if (belowBandEdge(percent, 100 - limits.underPercent)) return 'under';
+  if (aboveBandEdge(percent, 100 + limits.overPercent)) return 'over';
   return 'within';
 }
 
-/**
- * The band in volts about a nominal voltage, each end to 0.1 V: the one rounding every report uses
- * for it (the table's allowed volts and the limits line alike), so a 208Y/120 board whose nominal
- * is 208/√3 = 120.1 V reads 114.1–126.1 V in both places.
- */
 /**
  * The limits a band is written from: each percentage finite and in range, or an InputError naming it
  * (NaN printed "NaN–NaN V" and "±undefined %"). Reports ask once per board, never per interval.
@@ -106,31 +112,60 @@ function checkBandLimits(limits: unknown): asserts limits is Pick<VoltageLimits,
 
 const NOMINAL_EXPECTED = 'a nominal voltage in V, a finite number above 0';
 
-/** @throws {InputError} naming `limits.underPercent`, `limits.overPercent` or `nominalV` when one is not a finite figure in range */
-export function bandVolts(limits: Pick<VoltageLimits, 'underPercent' | 'overPercent'>, nominalV: number): { readonly low: string; readonly high: string } {
+/** Most decimals a band's ends or a figure beside them are printed with (voltageBesideBand.ts). */
+export const MOST_BAND_DECIMALS = 3;
+
+/**
+ * The band in volts about a nominal voltage, each end to 0.1 V: the one rounding every report uses
+ * for it (the table's allowed volts and the limits line alike), so a 208Y/120 board whose nominal
+ * is 208/√3 = 120.1 V reads 114.1–126.1 V in both places. `decimals` (1 to 3) prints the ends finer,
+ * as a figure beside them needed to show its side of an edge.
+ * @throws {InputError} naming `limits.underPercent`, `limits.overPercent`, `nominalV` or `decimals` when one is not a finite figure in range
+ */
+export function bandVolts(limits: Pick<VoltageLimits, 'underPercent' | 'overPercent'>, nominalV: number, decimals = 1): { readonly low: string; readonly high: string } {
   checkBandLimits(limits);
   checkNumberArgument(nominalV, 'nominalV', NOMINAL_EXPECTED, (x) => x > 0);
-  return { low: ((nominalV * (100 - limits.underPercent)) / 100).toFixed(1), high: ((nominalV * (100 + limits.overPercent)) / 100).toFixed(1) };
+  checkBandDecimals(decimals, 'decimals');
+  return { low: ((nominalV * (100 - limits.underPercent)) / 100).toFixed(decimals), high: ((nominalV * (100 + limits.overPercent)) / 100).toFixed(decimals) };
 }
 
-/** "120.1 V: 114.1–126.1 V line-to-neutral; 208.0 V: 197.6–218.4 V line-to-line": the band at a board's nominal voltages. */
-/** @throws {InputError} naming the limit or the nominal voltage that is not a finite figure in range (as judgedNominals gives them: a number or null) */
-export function bandVoltsWords(limits: VoltageLimits, nominal: { readonly lineToNeutralV: number | null; readonly lineToLineV: number | null }): string {
+function checkBandDecimals(decimals: unknown, name: string): void {
+  checkNumberArgument(decimals, name, `a whole number of decimals from 1 to ${MOST_BAND_DECIMALS}`, (x) => Number.isInteger(x) && x >= 1 && x <= MOST_BAND_DECIMALS);
+}
+
+/**
+ * "120.1 V: 114.1–126.1 V line-to-neutral; 208.0 V: 197.6–218.4 V line-to-line": the band at a board's nominal voltages.
+ * `decimals` prints one kind's ends finer where a figure beside them needed it (bandDecimalsOf in voltageCheck.ts).
+ * @throws {InputError} naming the limit, the nominal voltage or the decimals that is not a finite figure in range (as judgedNominals gives them: a number or null)
+ */
+export function bandVoltsWords(
+  limits: VoltageLimits,
+  nominal: { readonly lineToNeutralV: number | null; readonly lineToLineV: number | null },
+  decimals: { readonly lineToNeutral?: number; readonly lineToLine?: number } = {},
+): string {
   checkBandLimits(limits);
   if (typeof nominal !== 'object' || nominal === null) throw argumentIssueError('nominal', '{ lineToNeutralV, lineToLineV }, each a voltage in V or null, e.g. from judgedNominals(result)', nominal);
   for (const key of ['lineToNeutralV', 'lineToLineV'] as const)
     if (nominal[key] !== null) checkNumberArgument(nominal[key], `nominal.${key}`, `${NOMINAL_EXPECTED}, or null`, (x) => x > 0);
-  const at = (v: number, what: string) => {
-    const { low, high } = bandVolts(limits, v);
+  if (typeof decimals !== 'object' || decimals === null) throw argumentIssueError('decimals', '{ lineToNeutral?, lineToLine? }, each a whole number of decimals from 1 to 3', decimals);
+  for (const key of ['lineToNeutral', 'lineToLine'] as const) if (decimals[key] !== undefined) checkBandDecimals(decimals[key], `decimals.${key}`);
+  const at = (v: number, what: string, d = 1) => {
+    const { low, high } = bandVolts(limits, v, d);
     return `${v.toFixed(1)} V: ${low}–${high} V ${what}`;
   };
-  return [nominal.lineToNeutralV === null ? null : at(nominal.lineToNeutralV, 'line-to-neutral'), nominal.lineToLineV === null ? null : at(nominal.lineToLineV, 'line-to-line')]
+  return [
+    nominal.lineToNeutralV === null ? null : at(nominal.lineToNeutralV, 'line-to-neutral', decimals.lineToNeutral),
+    nominal.lineToLineV === null ? null : at(nominal.lineToLineV, 'line-to-line', decimals.lineToLine),
+  ]
     .filter((x): x is string => x !== null)
     .join('; ');
 }
 
+/** A limit as written, to 3 decimals at most: 10, 8.3, 8.333 (Range B's exact 25/3). */
+const limitFigure = (x: number): string => String(Math.round(x * 1000) / 1000);
+
 /** "±5 %" or "−6/+10 %": the band in a few characters, for tables and verdicts. */
 export function bandWords(limits: VoltageLimits): string {
   checkBandLimits(limits);
-  return limits.underPercent === limits.overPercent ? `±${limits.overPercent} %` : `−${limits.underPercent}/+${limits.overPercent} %`;
+  return limits.underPercent === limits.overPercent ? `±${limitFigure(limits.overPercent)} %` : `−${limitFigure(limits.underPercent)}/+${limitFigure(limits.overPercent)} %`;
 }

@@ -14,10 +14,11 @@ function impedanceWords(z: NonNullable<BoardBaseSpec['supply']['impedance']>, na
 import type { BoardResult, LoadReading, PowerReading } from '../../analysis/boardResult.js';
 import { fixed } from '../svgText.js';
 import { assumedPfNote, powerFactorText, signedPfText } from '../powerFactorText.js';
-import { WARNING_THRESHOLDS } from '../../analysis/boardWarnings.js';
+import { OPEN_NEUTRAL_BAND, WARNING_THRESHOLDS } from '../../analysis/boardWarnings.js';
 import { labelIn, type PhaseNaming } from '../../board/conventions/phaseNames.js';
-import { bandVolts, bandVoltsWords, bandWords, judgeVoltage } from '../../board/conventions/voltageLimits.js';
-import { judgedNominals } from '../../analysis/voltageCheck.js';
+import { bandVolts, bandVoltsWords, bandWords, customLimits } from '../../board/conventions/voltageLimits.js';
+import { percentBesideBand, voltageBesideBand } from '../../board/conventions/voltageBesideBand.js';
+import { bandDecimalsOf, judgedNominals } from '../../analysis/voltageCheck.js';
 import { renderPhasorDiagram } from '../renderPhasorDiagram.js';
 import { renderSequenceDiagram } from '../renderSequenceDiagram.js';
 import type { ReportBlock, ReportSection } from './reportDocument.js';
@@ -117,7 +118,7 @@ export function scheduleTable(loads: BoardBaseSpec['loads'], result: BoardResult
       fixed(l.kvar, 2),
       fixed(l.currentA, 1),
       `${pfWords(l)}${l.pfAssumed ? ' *' : ''}`,
-      worst ? fixed(worst.voltagePercent, 1) : '—',
+      worst ? percentBesideBand(result.voltageCheck.limits, worst.voltagePercent) : '—',
     ];
   });
   return {
@@ -158,7 +159,11 @@ export interface VoltageBand {
 export function bandOf(result: BoardResult): VoltageBand {
   const l = result.voltageCheck.limits;
   const nonStandard = nonStandardNominalNote(result.board);
-  return { lowPercent: -l.underPercent, highPercent: l.overPercent, source: `${bandWords(l)} of nominal (${l.preset}), on this board ${bandVoltsWords(l, judgedNominals(result))}: ${l.source}${nonStandard ? `. ${nonStandard}` : ''}` };
+  return {
+    lowPercent: -l.underPercent,
+    highPercent: l.overPercent,
+    source: `${bandWords(l)} of nominal (${l.preset}), on this board ${bandVoltsWords(l, judgedNominals(result), bandDecimalsOf(result))}: ${l.source}${nonStandard ? `. ${nonStandard}` : ''}`,
+  };
 }
 
 /** The EN 50160 low-voltage supply band (±10 %), the IEC default. */
@@ -168,23 +173,26 @@ export const DEFAULT_VOLTAGE_BAND: VoltageBand = {
   source: `±${WARNING_THRESHOLDS.voltageBandPercent} % of nominal, the EN 50160 low-voltage supply band trivar's warnings use`,
 };
 
+/** A report band as the limits judgeVoltage and voltageBesideBand take. */
+const bandLimits = (band: VoltageBand) => customLimits(-band.lowPercent, band.highPercent);
+
 /** Every phase and line-to-line voltage of the board against the band: its limits in volts, the margin and a verdict. */
 export function voltageLimitsTable(result: BoardResult, band: VoltageBand = bandOf(result)): ReportBlock {
   const b = result.board;
   const label = (t: string) => labelIn(result.conventions.phaseNames, t);
-  const limits = { preset: 'custom' as const, underPercent: -band.lowPercent, overPercent: band.highPercent, source: band.source };
+  const limits = bandLimits(band);
   const row = (name: string, v: number, percent: number, nominal: number): string[] => {
+    // Judged as the warnings and the verdict are (judgeVoltage); a figure near an edge, its allowed volts
+    // and its margin printed with the decimals that show its side.
+    const shown = voltageBesideBand(limits, { volts: v, percent });
     const margin = Math.min(percent - (100 + band.lowPercent), 100 + band.highPercent - percent);
-    // Judged as printed, like the warnings and the verdict (see voltageLimits.ts).
-    const low = judgeVoltage(limits, percent) === 'under';
-    const high = judgeVoltage(limits, percent) === 'over';
     return [
       name,
-      fixed(v, 1),
-      fixed(percent, 1),
-      ((volts) => `${volts.low} – ${volts.high}`)(bandVolts(limits, nominal)),
-      fixed(margin, 1),
-      low ? 'below the band' : high ? 'above the band' : 'within',
+      shown.volts,
+      shown.percent,
+      ((volts) => `${volts.low} – ${volts.high}`)(bandVolts(limits, nominal, Math.max(1, shown.voltsDecimals))),
+      fixed(shown.side === 'within' ? Math.max(0, margin) : margin, shown.percentDecimals),
+      shown.side === 'under' ? 'below the band' : shown.side === 'over' ? 'above the band' : 'within',
     ];
   };
   // The voltages the board's verdict judges (voltageCheck.ts): phase voltages only where a neutral gives them meaning.
@@ -218,11 +226,16 @@ export function resultBlocks(result: BoardResult, options: ResultBlockOptions = 
   if (result.operatingPoint.collapsed)
     blocks.push({ kind: 'list', tone: 'warning', items: ['Supply collapse: the supply cannot carry these loads; the figures below are not a working board.', ...result.operatingPoint.findings] });
   const label = (t: string) => labelIn(result.conventions.phaseNames, t);
+  const band = options.band ?? bandOf(result);
+  // Phase voltages are judged where a neutral gives them meaning (voltageCheck.ts): those beside the band read its way.
+  const judgedPhases = result.neutral !== null || result.lineToLine.length === 0;
+  const shownAgainstBand = (volts: number, percent: number) =>
+    judgedPhases ? voltageBesideBand(bandLimits(band), { volts, percent }) : { volts: fixed(volts, 1), percent: fixed(percent, 1) };
   const rows = result.phases.map((p) => [
     label(p.phase),
-    fixed(p.voltage.magnitude, 1),
+    shownAgainstBand(p.voltage.magnitude, p.voltagePercent).volts,
     fixed(p.voltage.angleDeg, 1),
-    fixed(p.voltagePercent, 1),
+    shownAgainstBand(p.voltage.magnitude, p.voltagePercent).percent,
     fixed(p.current.magnitude, 1),
     currentAngle(p.current),
     fixed(p.kW, 2),
@@ -250,9 +263,9 @@ export function resultBlocks(result: BoardResult, options: ResultBlockOptions = 
       { label: '% rating', align: 'right' },
     ],
     rows,
-    note: `${result.neutral ? `Phase voltages to the neutral bar; the N row gives the neutral bar voltage to ${regionWords(result.conventions.region, result.board.system as SystemKind).sourceNeutralPoint} and the neutral current.` : 'Phase voltages to the centroid of the line voltages (no neutral).'} Line-to-line: ${result.lineToLine.map((l) => `${label(l.pair)} ${fixed(l.voltage.magnitude, 1)} V`).join(', ')}.`,
+    note: `${result.neutral ? `Phase voltages to the neutral bar; the N row gives the neutral bar voltage to ${regionWords(result.conventions.region, result.board.system as SystemKind).sourceNeutralPoint} and the neutral current.` : 'Phase voltages to the centroid of the line voltages (no neutral).'} Line-to-line: ${result.lineToLine.map((l) => `${label(l.pair)} ${voltageBesideBand(bandLimits(band), { volts: l.voltage.magnitude, percent: l.voltagePercent }).volts} V`).join(', ')}.`,
   });
-  blocks.push(voltageLimitsTable(result, options.band));
+  blocks.push(voltageLimitsTable(result, band));
   blocks.push({ kind: 'figure', name: `${prefix}phasors`, caption: `Phasor diagram of ${result.board.name} as solved`, svg: renderPhasorDiagram(result) });
   const pf = result.powerFactor;
   const facts: [string, string][] = [
@@ -310,7 +323,10 @@ export function openNeutralSection(result: BoardResult): ReportSection | null {
         kind: 'table',
         caption: 'Voltage each line-to-neutral circuit would see',
         columns: [{ label: 'Circuit' }, { label: 'Phase' }, { label: 'V', align: 'right' }, { label: '%nom', align: 'right' }, { label: 'Verdict' }],
-        rows: on.loads.map((l) => [l.name, labelIn(result.conventions.phaseNames, l.phase), fixed(l.voltage, 1), fixed(l.voltagePercent, 1), l.flag === 'over' ? 'overvoltage' : l.flag === 'under' ? 'undervoltage' : 'within limits']),
+        rows: on.loads.map((l) => {
+          const shown = voltageBesideBand(OPEN_NEUTRAL_BAND, { volts: l.voltage, percent: l.voltagePercent });
+          return [l.name, labelIn(result.conventions.phaseNames, l.phase), shown.volts, shown.percent, l.flag === 'over' ? 'overvoltage' : l.flag === 'under' ? 'undervoltage' : 'within limits'];
+        }),
       },
       { kind: 'list', tone: 'caution', items: on.cautions },
     ],

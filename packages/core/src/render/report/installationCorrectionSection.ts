@@ -6,6 +6,8 @@
 import type { InstallationEffect } from '../../correction/installationEffect.js';
 import type { BeforeAfter } from '../../correction/correctionResult.js';
 import { fixed } from '../svgText.js';
+import { percentBesideBand } from '../../board/conventions/voltageBesideBand.js';
+import { lowestVoltagePercentText } from './installationSections.js';
 import { BANKS_IN_SERVICE_BASIS, bankInServiceWords } from '../../analysis/banksInServiceWords.js';
 import type { ReportColumn, ReportSection } from './reportDocument.js';
 
@@ -17,13 +19,28 @@ const banksInService = (effect: InstallationEffect): string =>
 const num = (label: string): ReportColumn => ({ label, align: 'right' });
 const change = (x: BeforeAfter, digits: number, unit = ''): string => `${fixed(x.before, digits)} → ${fixed(x.after, digits)}${unit}`;
 
+/**
+ * A board's lowest voltage before and after, % of nominal, each printed against the board's limits (the ones
+ * its count of loads outside the band judges by), with the decimals that show its side of an edge.
+ */
+export function lowestVoltageChange(effect: Pick<InstallationEffect, 'before'>, board: { readonly name: string; readonly lowestVoltagePercent: BeforeAfter }): { before: string; after: string } {
+  const limits = effect.before.boards.find((b) => b.name === board.name)?.result.voltageCheck.limits;
+  const text = (x: number) => (limits ? percentBesideBand(limits, x) : fixed(x, 1));
+  return { before: text(board.lowestVoltagePercent.before), after: text(board.lowestVoltagePercent.after) };
+}
+
+/** The installation's lowest voltage before and after, each against the limits of the board it is on. */
+export function lowestInstallationVoltageChange(effect: Pick<InstallationEffect, 'before' | 'after'>): { before: string; after: string } {
+  return { before: lowestVoltagePercentText(effect.before), after: lowestVoltagePercentText(effect.after) };
+}
+
 export function installationCorrectionSection(effect: InstallationEffect): ReportSection {
   const s = effect.supply;
   const supply: [string, string][] = [
     ['From the source', `${change(s.kVA, 1)} kVA (${change(s.kvar, 1)} kvar)`],
     ['Power factor at the source, kW / |kVA|', change(s.pf, 3)],
     [effect.before.boards[0]!.result.board.idealSource ? 'Losses (every feeder; the source is ideal)' : 'Losses (source windings and every feeder)', change(s.lossesKW, 3, ' kW')],
-    ['Lowest voltage in the installation', change(s.lowestVoltagePercent, 1, ' % of nominal')],
+    ['Lowest voltage in the installation', ((x) => `${x.before} → ${x.after} % of nominal`)(lowestInstallationVoltageChange(effect))],
   ];
   if (s.transformerLoadingPercent) supply.push(['Supply transformer loading', change(s.transformerLoadingPercent, 0, ' %')]);
   return {
@@ -43,7 +60,7 @@ export function installationCorrectionSection(effect: InstallationEffect): Repor
           b.vectorPf === null ? '—' : change(b.vectorPf, 3),
           change(b.incomerKvar, 1),
           change(b.feeder.largestLineCurrentA, 1),
-          change(b.lowestVoltagePercent, 1),
+          ((x) => `${x.before} → ${x.after}`)(lowestVoltageChange(effect, b)),
           change(b.feeder.lossesKW, 3),
         ]),
         note: 'PF at incomer: vector power factor |ΣP|/|ΣS| of what the board’s feeder carries. Incomer kvar above zero is lagging (taken from the board feeding it).',

@@ -3,6 +3,7 @@
  * drawing, the feeders, the totals, and one section per board (schedule,
  * results, voltages against limits, phasors).
  */
+import { percentBesideBand } from '../../board/conventions/voltageBesideBand.js';
 import { BANKS_IN_SERVICE_BASIS, bankInServiceWords } from '../../analysis/banksInServiceWords.js';
 import type { InstallationBaseSpec } from '../../board/installationSchema.js';
 import type { InstallationBoardResult, InstallationResult } from '../../analysis/installationResult.js';
@@ -131,6 +132,13 @@ export function feedersSection(result: InstallationResult): ReportSection {
   };
 }
 
+/** The installation's lowest voltage, % of nominal, printed against the limits of the board it is on (voltageBesideBand). */
+export function lowestVoltagePercentText(result: Pick<InstallationResult, 'totals' | 'boards'>): string {
+  const t = result.totals;
+  const board = result.boards.find((b) => b.name === t.lowestVoltageBoard);
+  return board ? percentBesideBand(board.result.voltageCheck.limits, t.lowestVoltagePercent) : fixed(t.lowestVoltagePercent, 1);
+}
+
 export function totalsSection(result: InstallationResult): ReportSection {
   const t = result.totals;
   const sourceKVA = Math.hypot(t.sourceKW, t.sourceKvar);
@@ -141,7 +149,7 @@ export function totalsSection(result: InstallationResult): ReportSection {
     [main.board.idealSource ? 'Losses (every feeder; the source is ideal)' : 'Losses (source windings and every feeder)', `${fixed(t.lossesKW, 3)} kW`],
     ['From the source', `${fixed(t.sourceKW, 2)} kW, ${fixed(t.sourceKvar, 2)} kvar, ${fixed(sourceKVA, 2)} kVA`],
     ['Power factor at the source, kW / |kVA|', sourceKVA > 0 ? fixed(t.sourceKW / sourceKVA, 3) : '—'],
-    ['Lowest voltage', `${fixed(t.lowestVoltagePercent, 1)} % of nominal, at ${t.lowestVoltageBoard} (${t.lowestVoltageAt})`],
+    ['Lowest voltage', `${lowestVoltagePercentText(result)} % of nominal, at ${t.lowestVoltageBoard} (${t.lowestVoltageAt})`],
   ];
   if (result.banksInService.length)
     items.push(['Capacitor banks in service', `${result.banksInService.map((b) => bankInServiceWords(b, b.deliveredKvar)).join('; ')} — ${BANKS_IN_SERVICE_BASIS}`]);

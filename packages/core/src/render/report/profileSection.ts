@@ -9,6 +9,11 @@ import type { ProfileBankResult, ProfileResult } from '../../profile/studyProfil
 import type { InstallationProfileResult } from '../../profile/studyInstallationProfile.js';
 import type { ProfileSummary, ResolvedLimits } from '../../profile/summariseFigures.js';
 import { fixed } from '../svgText.js';
+import { percentBesideEdges } from '../../board/conventions/voltageBesideBand.js';
+
+/** A % of nominal beside the hours outside the band, with the decimals that show its side of it. */
+const percentBeside = (percent: number, limits: Pick<ResolvedLimits, 'voltageLowPercent' | 'voltageHighPercent'>) =>
+  percentBesideEdges(percent, limits.voltageLowPercent, limits.voltageHighPercent);
 import { billingPowerFactorText } from '../../profile/billingPowerFactor.js';
 import { contactorLifeWords } from '../../profile/profileWording.js';
 import type { ReportBlock, ReportSection } from './reportDocument.js';
@@ -77,7 +82,7 @@ function boardBlocks(p: BoardProfileView, charts: readonly ProfileChart[], namin
       kind: 'table',
       caption: 'Voltages over the period, % of nominal (line-to-neutral where there is a neutral, and line-to-line)',
       columns: [{ label: 'Voltage' }, { label: 'Lowest %', align: 'right' }, { label: 'When' }, { label: 'Highest %', align: 'right' }, { label: 'When' }],
-      rows: s.voltages.map((v) => [label(v.phase), fixed(v.minPercent, 1), v.minAt, fixed(v.maxPercent, 1), v.maxAt]),
+      rows: s.voltages.map((v) => [label(v.phase), percentBeside(v.minPercent, p.limits), v.minAt, percentBeside(v.maxPercent, p.limits), v.maxAt]),
     },
     ...charts.map((c): ReportBlock => ({ kind: 'figure', name: `${figurePrefix}${c.name}`, caption: c.caption, svg: c.svg })),
   ];
@@ -156,8 +161,8 @@ export function installationProfileSections(
           fixed(peakLine(b.before), 1),
           orDash(rating, 0),
           neutral ? fixed(neutral.maxA, 1) : '—',
-          fixed(Math.min(...b.before.voltages.map((v) => v.minPercent)), 1),
-          fixed(Math.max(...b.before.voltages.map((v) => v.maxPercent)), 1),
+          percentBeside(Math.min(...b.before.voltages.map((v) => v.minPercent)), b.limits),
+          percentBeside(Math.max(...b.before.voltages.map((v) => v.maxPercent)), b.limits),
           `${limitPercent(b.limits.voltageLowPercent)}–${limitPercent(b.limits.voltageHighPercent)}`,
           `${fixed(b.before.hoursVoltageLow, 1)} / ${fixed(b.before.hoursVoltageHigh, 1)}`,
         ];
