@@ -36,6 +36,36 @@ describe('trivar harmonics (built binary)', () => {
   });
 });
 
+describe('trivar harmonics: what the bus voltages are judged against (built binary)', () => {
+  const board = readFileSync(`${ROOT}${offices}`, 'utf8');
+  const judged = (stdout: string) => stdout.replace(/\n\s+/g, ' ').match(/bus voltages against the (.*?): (within on every bus voltage|EXCEEDED on [^(]*)/);
+
+  it('an IEC board: the IEC 61000-2-2 level of every order solved, and the warning names the level a failing order exceeds', () => {
+    const r = runTrivar(['harmonics', offices]);
+    expect(r.code).toBe(0);
+    expect(judged(r.stdout)![1]).toBe(
+      'IEC 61000-2-2 compatibility levels (the default of the board’s region): h3 5 %, h5 6 %, h7 5 %, h9 1.5 %, h11 3.5 %, h13 3 %, h15 0.4 %, h17 2 %, h19 1.76 %, 8 % THD',
+    );
+    expect(r.stdout.replace(/\n\s+/g, ' ')).toMatch(/above its level \(IEC 61000-2-2 compatibility levels; % of the fundamental\): A-N h7 6\.4 % \(level 5 %\)/);
+  });
+
+  it('harmonics.voltageDistortionLimits switches the basis: EN 50160, then IEEE 519', () => {
+    const en = runTrivar(['harmonics', '-'], board.replace('harmonics:\n', 'harmonics:\n  voltageDistortionLimits: en-50160\n'));
+    expect(en.code).toBe(0);
+    expect(judged(en.stdout)![1]).toMatch(/^EN 50160 supply levels \(named in the board file\): h3 5 %, h5 6 %, h7 5 %, h9 1\.5 %, h11 3\.5 %, h13 3 %, h15 0\.5 %/);
+    const ieee = runTrivar(['harmonics', '-'], board.replace('harmonics:\n', 'harmonics:\n  voltageDistortionLimits: ieee-519\n'));
+    expect(judged(ieee.stdout)![1]).toBe('IEEE 519 limits for ≤ 1 kV (named in the board file): 5 % one order, 8 % THD');
+  });
+
+  it('a wrong basis exits 3 naming the field and the words it takes', () => {
+    const r = runTrivar(['harmonics', '-'], board.replace('harmonics:\n', 'harmonics:\n  voltageDistortionLimits: iec-61000\n'));
+    expect(r.code).toBe(3);
+    expect(r.stderr).toContain('harmonics.voltageDistortionLimits');
+    expect(r.stderr).toMatch(/iec-61000-2-2.*en-50160.*ieee-519/s);
+    expect(r.stderr).not.toMatch(/\bat .*\.js:\d+/);
+  });
+});
+
 describe('trivar harmonics on an installation (built binary)', () => {
   const yard = 'examples/harrow-yard-studios.yaml';
   it('one summary row per board, the supply intake, the bank seen from its board, warnings naming their board', () => {

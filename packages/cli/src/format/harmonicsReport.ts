@@ -1,5 +1,5 @@
 /** HarmonicsReport → the human-readable report of `trivar harmonics`. */
-import { conditionWords, labelIn, signedPfText, type DistortionReading, type HarmonicsReport, type ResonanceScan, type CapacitorDuty, type TddCheck, type NeutralCheck } from '@trivar/core';
+import { conditionWords, labelIn, signedPfText, voltageBasisWords, type DistortionReading, type HarmonicsReport, type ResonanceScan, type CapacitorDuty, type TddCheck, type NeutralCheck } from '@trivar/core';
 import { fixed, renderTable, section, textWidth } from './textTable.js';
 import { REPORT_WIDTH } from './wrapText.js';
 import { wrapText } from './wrapText.js';
@@ -196,7 +196,7 @@ export function renderHarmonicsReport(r: HarmonicsReport): string {
   );
   const v = r.voltageDistortion;
   const overBuses = v.buses.filter((b) => !b.ok).map((b) => labeller(r)(b.bus));
-  out.push(prose(`IEEE 519 voltage limits at ≤ 1 kV (${v.individualLimitPercent} % one order, ${v.thdLimitPercent} % THD): ${v.ok ? 'within on every bus voltage' : `EXCEEDED on ${overBuses.join(', ')} (see warnings)`}`));
+  out.push(prose(`bus voltages against the ${voltageBasisWords(v)}: ${v.ok ? 'within on every bus voltage' : `EXCEEDED on ${overBuses.join(', ')} (see warnings)`}`));
   if (r.neutral) {
     out.push(section('Neutral conductor'));
     out.push(...neutralLines(r.neutral));
