@@ -128,7 +128,7 @@ export const harmonicsSectionSchema = z
       .enum(VOLTAGE_DISTORTION_BASES)
       .optional()
       .describe(
-        'levels the board voltages are judged against, each order and THD: iec-61000-2-2 (compatibility levels of public LV networks), en-50160 (supply levels at LV) or ieee-519 (5 % one order, 8 % THD at ≤ 1 kV); default iec-61000-2-2 on an IEC board, ieee-519 on a North-American one. Current distortion at the point of common coupling (pcc) is IEEE 519 whatever this says',
+        'levels the board voltages are judged against, each order and THD: iec-61000-2-2 (compatibility levels of public LV networks), en50160 (supply levels at LV) or ieee-519 (5 % one order, 8 % THD at ≤ 1 kV); default iec-61000-2-2 on an IEC board, ieee-519 on a North-American one. Current distortion at the point of common coupling (pcc) is IEEE 519 whatever this says',
       ),
   })
   .describe('a harmonic study for `trivar harmonics`');

@@ -5,10 +5,26 @@
 import { distinctDigits } from '../correction/correctionWording.js';
 import type { BusVoltageDistortion, JointScan, NeutralCheck, VoltageDistortionCheck } from './harmonicsResult.js';
 import { levelText } from './voltageDistortionLimits.js';
+import { ROUND_OFF_MARGIN } from '../analysis/boardWarnings.js';
 
 const pct = (x: number) => `${x.toFixed(1)} %`;
 /** A figure above its limit, with the decimals it needs to read above it (5.04 %, never "5.0 %, above 5 %"). */
 const above = (x: number, limit: number) => `${distinctDigits(x, limit, 1)[0]} %`;
+
+/**
+ * A bus voltage figure (%) as every table prints it: one decimal, or, above its level, the decimals it
+ * needs to read above it, as the warnings print it — a verdict beside it never contradicts the figure.
+ */
+export const percentAgainstLevel = (x: number, limit: number | null): string => (limit !== null && x > limit * (1 + ROUND_OFF_MARGIN) ? distinctDigits(x, limit, 1)[0] : x.toFixed(1));
+
+/** The THD and largest order of one bus as printed beside its verdict (`bus` from VoltageDistortionCheck.buses). */
+export function busFigureTexts(check: VoltageDistortionCheck, bus: string): { thd: (x: number) => string; order: (order: number, x: number) => string } {
+  const b = check.buses.find((x) => x.bus === bus);
+  return {
+    thd: (x) => percentAgainstLevel(x, b ? check.thdLimitPercent : null),
+    order: (order, x) => percentAgainstLevel(x, b?.ordersAbove.find((o) => o.order === order)?.limitPercent ?? null),
+  };
+}
 
 export const NEUTRAL_PRACTICE =
   'with mostly non-linear single-phase loads the neutral carries the triplen currents of all three phases and is counted as a current-carrying conductor (NEC 310.15, confirmed for the 2008 numbering); a neutral of twice the phase size is the usual practice for such feeders (IEEE Std 1100, from memory)';

@@ -288,7 +288,7 @@ export function harmonicsWarnings({ scan, neutral, voltageDistortion, duty, tdd,
   if (voltageDistortion) {
     const { thdLimitPercent: thdLimit, basisName } = voltageDistortion;
     for (const bus of voltageDistortion.buses)
-      if (bus.thdPercent !== null && bus.thdPercent > thdLimit) warn('voltage-thd', harmonicsWarningText.voltageThd(label(bus.bus), bus.thdPercent, thdLimit, basisName), bus.thdPercent, thdLimit);
+      if (bus.thdPercent !== null && bus.thdPercent > thdLimit * (1 + ROUND_OFF_MARGIN)) warn('voltage-thd', harmonicsWarningText.voltageThd(label(bus.bus), bus.thdPercent, thdLimit, basisName), bus.thdPercent, thdLimit);
     // One warning for every bus with an order above its level: the value and threshold those of the order furthest above its level.
     const overIndividual = voltageDistortion.buses.filter((b) => b.ordersAbove.length);
     if (overIndividual.length) {

@@ -8,16 +8,20 @@
  */
 import type { BusVoltageDistortion, DistortionReading, HarmonicLineReading, VoltageDistortionCheck } from './harmonicsResult.js';
 import type { HarmonicModel } from './harmonicModel.js';
+import { ROUND_OFF_MARGIN } from '../analysis/boardWarnings.js';
 import { VOLTAGE_DISTORTION_LIMITS, type VoltageDistortionLimits } from './voltageDistortionLimits.js';
+
+/** Above a level by more than round-off: a voltage written at exactly its level is within it. */
+const over = (x: number, limit: number) => x > limit * (1 + ROUND_OFF_MARGIN);
 
 function busCheck(bus: string, voltage: DistortionReading, limits: VoltageDistortionLimits): BusVoltageDistortion {
   const orders = voltage.orders.flatMap((o) => (o.percentOfFundamental === null ? [] : [{ order: o.order, percent: o.percentOfFundamental }]));
   const largest = orders.reduce<{ order: number; percent: number } | null>((best, o) => (best === null || o.percent > best.percent ? o : best), null);
   const ordersAbove = orders.flatMap((o) => {
     const limitPercent = limits.orderPercent(o.order);
-    return limitPercent !== null && o.percent > limitPercent ? [{ ...o, limitPercent }] : [];
+    return limitPercent !== null && over(o.percent, limitPercent) ? [{ ...o, limitPercent }] : [];
   });
-  return { bus, thdPercent: voltage.thdPercent, largest, ordersAbove, ok: ordersAbove.length === 0 && (voltage.thdPercent === null || voltage.thdPercent <= limits.thdPercent) };
+  return { bus, thdPercent: voltage.thdPercent, largest, ordersAbove, ok: ordersAbove.length === 0 && (voltage.thdPercent === null || !over(voltage.thdPercent, limits.thdPercent)) };
 }
 
 export function checkVoltageDistortion(

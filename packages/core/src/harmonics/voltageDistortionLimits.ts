@@ -8,7 +8,7 @@
 import type { Region } from '../board/conventions/region.js';
 import { IEEE_519_VOLTAGE_LIMITS, IEEE_519_VOLTAGE_SOURCE } from './ieee519.js';
 
-export const VOLTAGE_DISTORTION_BASES = ['iec-61000-2-2', 'en-50160', 'ieee-519'] as const;
+export const VOLTAGE_DISTORTION_BASES = ['iec-61000-2-2', 'en50160', 'ieee-519'] as const;
 export type VoltageDistortionBasis = (typeof VOLTAGE_DISTORTION_BASES)[number];
 
 export interface VoltageDistortionLimits {
@@ -33,7 +33,7 @@ const hundredths = (x: number) => Math.round(x * 100) / 100;
  * (confirmed secondary). The rest FROM MEMORY: 15th 0.4 %, 21st 0.3 %, triplens 27–45 0.2 %, other odd
  * orders 17–49 2.27·(17/h) − 0.27, even orders 8–50 0.25·(10/h) + 0.25 (formula orders rounded to 0.01 %).
  */
-function iec61000_2_2(h: number): number | null {
+function iec61000_2_2Level(h: number): number | null {
   if (h % 2 === 0) return h === 2 ? 2 : h === 4 ? 1 : h === 6 ? 0.5 : hundredths(0.25 * (10 / h) + 0.25);
   if (h % 3 === 0) return h === 3 ? 5 : h === 9 ? 1.5 : h === 15 ? 0.4 : h === 21 ? 0.3 : 0.2;
   const low: Record<number, number> = { 5: 6, 7: 5, 11: 3.5, 13: 3 };
@@ -48,7 +48,7 @@ function iec61000_2_2(h: number): number | null {
  * conformance appendix list the same LV table.
  */
 const EN_50160: Readonly<Record<number, number>> = { 2: 2, 3: 5, 4: 1, 5: 6, 7: 5, 9: 1.5, 11: 3.5, 13: 3, 15: 0.5, 17: 2, 19: 1.5, 21: 0.5, 23: 1.5, 25: 1.5 };
-function en50160(h: number): number | null {
+function en50160Level(h: number): number | null {
   if (h > 25) return null;
   return EN_50160[h] ?? (h % 2 === 0 ? 0.5 : null);
 }
@@ -59,16 +59,16 @@ export const VOLTAGE_DISTORTION_LIMITS: Readonly<Record<VoltageDistortionBasis, 
     name: 'IEC 61000-2-2 compatibility levels',
     thdPercent: 8,
     flatPercent: null,
-    orderPercent: iec61000_2_2,
+    orderPercent: iec61000_2_2Level,
     source:
       'IEC 61000-2-2 Table 1, public LV networks (orders 2–13 and THD 8 % as EN 50160, confirmed; 15th and above from memory: 15th 0.4 %, 21st 0.3 %, other triplens 0.2 %, odd 2.27·(17/h) − 0.27 %, even 0.25·(10/h) + 0.25 %, to 0.01 %)',
   },
-  'en-50160': {
-    basis: 'en-50160',
+  'en50160': {
+    basis: 'en50160',
     name: 'EN 50160 supply levels',
     thdPercent: 8,
     flatPercent: null,
-    orderPercent: en50160,
+    orderPercent: en50160Level,
     source: 'EN 50160:2010 LV supply levels, 95 % of 10-minute values in a week (confirmed: meter makers’ EN 50160 notes); none above the 25th, THD 8 %',
   },
   'ieee-519': {

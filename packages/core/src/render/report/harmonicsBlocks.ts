@@ -18,10 +18,9 @@ import type {
   VoltageDistortionCheck,
 } from '../../harmonics/harmonicsResult.js';
 import { conditionWords } from '../../harmonics/dutyConditions.js';
-import { jointCoverageWords, nearestWords, voltageBasisWords } from '../../harmonics/harmonicsWording.js';
+import { busFigureTexts, jointCoverageWords, nearestWords, percentAgainstLevel, voltageBasisWords } from '../../harmonics/harmonicsWording.js';
 import type { PhaseLabeller } from '../../board/conventions/phaseNames.js';
 import { fixed } from '../svgText.js';
-import { distinctDigits } from '../../correction/correctionWording.js';
 import { levelText } from '../../harmonics/voltageDistortionLimits.js';
 import { renderImpedanceScan } from '../renderImpedanceScan.js';
 import type { ReportBlock } from './reportDocument.js';
@@ -51,29 +50,35 @@ export function harmonicCurrentTable(lines: readonly HarmonicLineReading[], neut
 
 /** Each line's voltage with harmonics and its true and displacement power factor. */
 export function harmonicVoltageTable(
-  h: { readonly lines: readonly HarmonicLineReading[]; readonly lineToLine: readonly { readonly pair: string; readonly voltage: DistortionReading }[]; readonly hasNeutral: boolean },
+  h: {
+    readonly lines: readonly HarmonicLineReading[];
+    readonly lineToLine: readonly { readonly pair: string; readonly voltage: DistortionReading }[];
+    readonly hasNeutral: boolean;
+    readonly voltageDistortion: VoltageDistortionCheck;
+  },
   label: PhaseLabeller,
   caption: string,
 ): ReportBlock {
   const { lines } = h;
+  // THD as the bus table beside it prints it: over its limit, with the decimals to read over it.
+  const thdOf = (bus: string, d: DistortionReading) => (d.thdPercent === null ? '—' : busFigureTexts(h.voltageDistortion, bus).thd(d.thdPercent));
   // Without a neutral only the line-to-line voltages exist at the board.
   if (!h.hasNeutral && h.lineToLine.length)
     return {
       kind: 'table',
       caption: caption.replace('Voltages and power factor', 'Line-to-line voltages'),
       columns: [{ label: 'Lines' }, { label: 'rms V', align: 'right' }, { label: 'THD %', align: 'right' }],
-      rows: h.lineToLine.map((p) => [label(p.pair), fixed(p.voltage.rms, 1), orDash(p.voltage.thdPercent, 1)]),
+      rows: h.lineToLine.map((p) => [label(p.pair), fixed(p.voltage.rms, 1), thdOf(p.pair, p.voltage)]),
     };
   return {
     kind: 'table',
     caption,
     columns: [{ label: 'Line' }, { label: 'rms V', align: 'right' }, { label: 'THD %', align: 'right' }, { label: 'true PF', align: 'right' }, { label: 'displacement PF', align: 'right' }],
-    rows: lines.map((l) => [label(l.phase), fixed(l.voltage.rms, 1), orDash(l.voltage.thdPercent, 1), signedPfText(l.truePf, '—'), signedPfText(l.displacementPf, '—')]),
+    rows: lines.map((l) => [label(l.phase), fixed(l.voltage.rms, 1), thdOf(`${l.phase}-N`, l.voltage), signedPfText(l.truePf, '—'), signedPfText(l.displacementPf, '—')]),
   };
 }
 
-/** A figure to one decimal, or with the decimals it needs to read above its level (as the warnings print it: 5.04, never "5.0, above 5"). */
-const againstLevel = (x: number, limit: number) => (x > limit ? distinctDigits(x, limit, 1)[0] : fixed(x, 1));
+const againstLevel = percentAgainstLevel;
 
 /** Every bus voltage against the levels of its basis (IEC 61000-2-2, EN 50160 or IEEE 519), each failing order with the level it exceeds. */
 export function voltageDistortionTable(check: VoltageDistortionCheck, label: PhaseLabeller, caption: string): ReportBlock {

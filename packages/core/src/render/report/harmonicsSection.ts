@@ -8,7 +8,7 @@ import type { VoltageDistortionBasis } from '../../harmonics/voltageDistortionLi
 
 const VOLTAGE_BASIS_STANDARDS: Readonly<Record<VoltageDistortionBasis, StandardReference>> = {
   'iec-61000-2-2': { name: 'IEC 61000-2-2', use: 'compatibility levels of public LV networks the bus harmonic voltages are judged against (each order and THD)' },
-  'en-50160': { name: 'EN 50160', use: 'LV supply levels the bus harmonic voltages are judged against (each order and THD)' },
+  'en50160': { name: 'EN 50160', use: 'LV supply levels the bus harmonic voltages are judged against (each order and THD)' },
   'ieee-519': { name: 'IEEE Std 519-2014', use: 'bus voltage distortion limits at ≤ 1 kV (each order and THD)' },
 };
 
