@@ -6,8 +6,9 @@
  * 5.5 % is within IEC 61000-2-2's 6 % but over IEEE 519's 5 %; a 9th at 2 % is over IEC 61000-2-2's
  * 1.5 % but within IEEE 519's 5 %.
  */
+import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
-import { InputError, studyHarmonics, VOLTAGE_DISTORTION_LIMITS, type BoardSpec } from '@trivar/core';
+import { InputError, readBoardText, studyHarmonics, studyInstallationHarmonics, VOLTAGE_DISTORTION_LIMITS, type BoardSpec } from '@trivar/core';
 import { expectClose } from '../support/tolerance.js';
 
 const tight = { rel: 1e-9, abs: 1e-9 };
@@ -106,6 +107,30 @@ describe('a North-American board keeps IEEE 519 by default', () => {
     const r = studyHarmonics(packingShed([{ order: 5, percent: 5.5 }]));
     expect([r.voltageDistortion.basis, r.voltageDistortion.basisFrom, r.voltageDistortion.ok]).toEqual(['ieee-519', 'region', false]);
     expect(studyHarmonics(packingShed([{ order: 5, percent: 5.5 }], 'iec-61000-2-2')).voltageDistortion.ok).toBe(true);
+  });
+});
+
+describe('an installation: every board on the basis its harmonics section names', () => {
+  const yard = readBoardText(readFileSync(new URL('../../examples/harrow-yard-studios.yaml', import.meta.url), 'utf8')) as { harmonics: Record<string, unknown> };
+  const study = (basis?: string) => studyInstallationHarmonics({ ...yard, harmonics: { ...yard.harmonics, ...(basis ? { voltageDistortionLimits: basis } : {}) } });
+
+  it('by default IEC 61000-2-2 (an IEC installation): every busbar over 3 % at h13; IEEE 519 named: only the workshop, over 5 %', () => {
+    const iec = study();
+    expect(iec.boards.map((b) => [b.voltageDistortion.basis, b.voltageDistortion.basisFrom, b.voltageDistortion.ok])).toEqual(iec.boards.map(() => ['iec-61000-2-2', 'region', false]));
+    expect(iec.boards.every((b) => b.voltageDistortion.buses.some((x) => x.ordersAbove.some((o) => o.order === 13 && o.limitPercent === 3)))).toBe(true);
+    const ieee = study('ieee-519');
+    expect(ieee.boards.map((b) => [b.board, b.voltageDistortion.basisFrom, b.voltageDistortion.ok])).toEqual([
+      ['Main switchboard', 'board file', true],
+      ['Workshop', 'board file', false],
+      ['Studios ground', 'board file', true],
+      ['Studios upper', 'board file', true],
+    ]);
+    const workshop = ieee.boards[1]!.voltageDistortion.buses.find((b) => b.bus === 'A-N')!;
+    expect(workshop.ordersAbove.map((o) => [o.order, o.percent.toFixed(1), o.limitPercent])).toEqual([[13, '5.3', 5]]);
+  });
+
+  it('a wrong basis in the installation file is refused at its path', () => {
+    expect(() => study('iec61000')).toThrow(/harmonics\.voltageDistortionLimits/);
   });
 });
 
