@@ -86,7 +86,7 @@ export interface TddCheck {
   readonly source: string;
 }
 
-/** One bus voltage of the board against the IEEE 519 voltage limits. */
+/** One bus voltage of the board against the levels of its basis (IEC 61000-2-2, EN 50160 or IEEE 519). */
 export interface BusVoltageDistortion {
   /** `A-N` (to the neutral bar; to the centroid of the line voltages on a 3-wire board) or `A-B`. */
   readonly bus: string;
@@ -308,7 +308,7 @@ export interface HarmonicsReport {
   readonly lineToLine: readonly { readonly pair: string; readonly voltage: DistortionReading }[];
   /**
    * False on a board without a neutral (3-wire): its line voltages (`lines[].voltage`) are to the mean of
-   * the three, a point no conductor reaches; reports and the IEEE 519 check read the line-to-line voltages.
+   * the three, a point no conductor reaches; reports and the voltage-level check read the line-to-line voltages.
    */
   readonly hasNeutral: boolean;
   readonly neutral: NeutralCheck | null;
