@@ -36,6 +36,55 @@ describe('trivar harmonics (built binary)', () => {
   });
 });
 
+describe('trivar harmonics: what the bus voltages are judged against (built binary)', () => {
+  const board = readFileSync(`${ROOT}${offices}`, 'utf8');
+  const judged = (stdout: string) => stdout.replace(/\n\s+/g, ' ').match(/bus voltages against the (.*?): (within on every bus voltage|EXCEEDED on [^(]*)/);
+
+  it('an IEC board: the IEC 61000-2-2 level of every order solved, and the warning names the level a failing order exceeds', () => {
+    const r = runTrivar(['harmonics', offices]);
+    expect(r.code).toBe(0);
+    expect(judged(r.stdout)![1]).toBe(
+      'IEC 61000-2-2 compatibility levels (the default of the board’s region): h3 5 %, h5 6 %, h7 5 %, h9 1.5 %, h11 3.5 %, h13 3 %, h15 0.4 %, h17 2 %, h19 1.76 %, 8 % THD',
+    );
+    expect(r.stdout.replace(/\n\s+/g, ' ')).toMatch(/above its level \(IEC 61000-2-2 compatibility levels; % of the fundamental\): A-N h7 6\.4 % \(level 5 %\)/);
+  });
+
+  it('harmonics.voltageDistortionLimits switches the basis: EN 50160, then IEEE 519', () => {
+    const en = runTrivar(['harmonics', '-'], board.replace('harmonics:\n', 'harmonics:\n  voltageDistortionLimits: en50160\n'));
+    expect(en.code).toBe(0);
+    expect(judged(en.stdout)![1]).toMatch(/^EN 50160 supply levels \(named in the board file\): h3 5 %, h5 6 %, h7 5 %, h9 1\.5 %, h11 3\.5 %, h13 3 %, h15 0\.5 %/);
+    const ieee = runTrivar(['harmonics', '-'], board.replace('harmonics:\n', 'harmonics:\n  voltageDistortionLimits: ieee-519\n'));
+    expect(judged(ieee.stdout)![1]).toBe('IEEE 519 limits for ≤ 1 kV (named in the board file): 5 % one order, 8 % THD');
+  });
+
+  it('a THD just over 8 % is printed with the decimals to read over it, in the table, the verdict and the warning alike; a 5th at its 6 % level is within', () => {
+    // A stiff 230/400 V supply carrying 6 % at h5, 5 % at h7 and 1.8221 % at h11: THD √(36 + 25 + 3.3200) = 8.0200 %.
+    const plant = [
+      'name: quay ice plant',
+      'supply: { system: three-phase-4wire, voltage: "230/400", frequencyHz: 50 }',
+      'loads:',
+      '  - { name: brine pumps, connection: L1L2L3-delta, kW: 15, pf: 0.9 }',
+      'harmonics:',
+      '  background: [{ order: 5, percent: 6 }, { order: 7, percent: 5 }, { order: 11, percent: 1.8221 }]',
+      '',
+    ].join('\n');
+    const r = runTrivar(['harmonics', '-'], plant);
+    expect(r.code).toBe(0);
+    expect(r.stdout).toMatch(/^ {2}L1-N +231\.7 +8\.02 +h5 6\.0 %/m);
+    expect(judged(r.stdout)![2]).toMatch(/^EXCEEDED on L1-N, L2-N, L3-N, L1-L2, L2-L3, L3-L1/);
+    expect(r.stdout.replace(/\n\s+/g, ' ')).toContain('voltage THD at the board on L1-N is 8.02 %, above 8 % (IEC 61000-2-2 compatibility levels)');
+    expect(r.stdout).not.toMatch(/h5 6\.0+\d* % \(level 6 %\)/);
+  });
+
+  it('a wrong basis exits 3 naming the field and the words it takes', () => {
+    const r = runTrivar(['harmonics', '-'], board.replace('harmonics:\n', 'harmonics:\n  voltageDistortionLimits: iec-61000\n'));
+    expect(r.code).toBe(3);
+    expect(r.stderr).toContain('harmonics.voltageDistortionLimits');
+    expect(r.stderr).toMatch(/iec-61000-2-2.*en50160.*ieee-519/s);
+    expect(r.stderr).not.toMatch(/\bat .*\.js:\d+/);
+  });
+});
+
 describe('trivar harmonics on an installation (built binary)', () => {
   const yard = 'examples/harrow-yard-studios.yaml';
   it('one summary row per board, the supply intake, the bank seen from its board, warnings naming their board', () => {

@@ -1,6 +1,8 @@
 /**
  * IEEE 519 voltage limits at the board's buses (≤ 1 kV: 5 % for one harmonic,
- * 8 % THD — IEEE 519-2014 Table 1, confirmed secondary), on a board whose
+ * 8 % THD — IEEE 519-2014 Table 1, confirmed secondary), named in the file
+ * (`harmonics.voltageDistortionLimits: ieee-519`: this 400 V 50 Hz board's own region
+ * would judge it against IEC 61000-2-2), on a board whose
  * harmonic voltage has a closed form: one single-phase non-linear load on a
  * supply of impedance R + jX with no feeder, so its 5th-harmonic current I5
  * returns through the phase's source impedance alone and
@@ -20,6 +22,7 @@ const board = (percent5: number): BoardSpec => ({
     { name: 'charger bank', connection: 'A-N', kW: 10, pf: 1, spectrum: [{ order: 5, percent: percent5 }] },
     { name: 'lights', connection: 'B-N', kW: 2, pf: 1 },
   ],
+  harmonics: { voltageDistortionLimits: 'ieee-519' },
 });
 
 describe('IEEE 519 voltage limits at each bus voltage of the board', () => {
@@ -40,6 +43,7 @@ describe('IEEE 519 voltage limits at each bus voltage of the board', () => {
     expectClose(a.thdPercent!, expected, tight, 'A-N THD (only the 5th)');
     expect(a.ok).toBe(false);
     expect(report.voltageDistortion.ok).toBe(false);
+    expect([report.voltageDistortion.basis, report.voltageDistortion.basisFrom, report.voltageDistortion.individualLimitPercent]).toEqual(['ieee-519', 'board file', 5]);
   });
 
   it('the same 5th volts on A-B are a smaller share of 400 V: within; phase B has none', () => {
@@ -56,7 +60,7 @@ describe('IEEE 519 voltage limits at each bus voltage of the board', () => {
     expect(w.map((x) => x.code)).toEqual(['voltage-individual']);
     expectClose(w[0]!.value!, bus('A-N').largest!.percent, tight, 'warning value');
     expect(w[0]!.threshold).toBe(5);
-    expect(w[0]!.message).toBe('a single harmonic of the board voltage is above the 5 % IEEE 519 limit for ≤ 1 kV (% of the fundamental): A-N h5 5.7 %');
+    expect(w[0]!.message).toBe('a single harmonic of the board voltage is above 5 % (IEEE 519 limits for ≤ 1 kV; % of the fundamental): A-N h5 5.7 %');
   });
 
   it('just above the limit, the figure gets the decimals to read above it', () => {

@@ -72,7 +72,9 @@ Exit codes: as for solve (3 also for interval data that cannot be read: every ba
 by row and column)`;
 const HARMONICS_EXAMPLES = `
 Spectra go on the loads (spectrum: switch-mode | [{ order, percent, angleDeg }]); background distortion,
-an installed bank and the IEEE 519 check go under "harmonics:" in the board file (see trivar schema).
+an installed bank, the IEEE 519 current check (pcc) and the levels the board voltages are judged against
+(voltageDistortionLimits: iec-61000-2-2 | en50160 | ieee-519; default by region) go under "harmonics:"
+in the board file (see trivar schema).
 On an installation file every board is solved at once (the feeders and their neutrals at each order);
 banks go under "harmonics: banks:" with the board each is on, and the scan is seen from that board.
 

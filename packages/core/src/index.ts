@@ -207,7 +207,9 @@ export { dutyConditions, withCapacitanceFactor, withLoadsOff, withOtherBanksOff,
 export { tuningOrder, capacitorVoltage, detunedOutputKvar, detunedSusceptance, DETUNING_FACTORS_PERCENT } from './harmonics/detuning.js';
 export { ieee519OrderLimit, ieee519Row } from './harmonics/ieee519.js';
 export { HARMONICS_DEFAULTS } from './harmonics/harmonicsDefaults.js';
-export { HARMONICS_CAUTIONS, jointCoverageWords, nearestWords } from './harmonics/harmonicsWording.js';
+export { HARMONICS_CAUTIONS, jointCoverageWords, nearestWords, voltageBasisWords, percentAgainstLevel, busFigureTexts } from './harmonics/harmonicsWording.js';
+export type { VoltageDistortionBasis, VoltageDistortionLimits } from './harmonics/voltageDistortionLimits.js';
+export { VOLTAGE_DISTORTION_BASES, VOLTAGE_DISTORTION_LIMITS, regionVoltageDistortionBasis } from './harmonics/voltageDistortionLimits.js';
 export type { FixedNetworkInput, FixedSolveOptions } from './network/solveFixedNetwork.js';
 export { CompiledNetworkCache } from './network/compiledNetworkCache.js';
 export { solveFixedNetwork } from './network/solveFixedNetwork.js';

@@ -1,5 +1,5 @@
 /** HarmonicsReport → the human-readable report of `trivar harmonics`. */
-import { conditionWords, labelIn, signedPfText, type DistortionReading, type HarmonicsReport, type ResonanceScan, type CapacitorDuty, type TddCheck, type NeutralCheck } from '@trivar/core';
+import { busFigureTexts, conditionWords, labelIn, signedPfText, voltageBasisWords, type DistortionReading, type HarmonicsReport, type ResonanceScan, type CapacitorDuty, type TddCheck, type NeutralCheck } from '@trivar/core';
 import { fixed, renderTable, section, textWidth } from './textTable.js';
 import { REPORT_WIDTH } from './wrapText.js';
 import { wrapText } from './wrapText.js';
@@ -21,7 +21,7 @@ export type Label = (term: string) => string;
 export const labeller = (r: Pick<HarmonicsReport, 'phaseNames'>): Label => (term) => labelIn(r.phaseNames, term);
 
 /** What the current and voltage tables read: one board's lines, pairs and neutral, the orders solved and the naming. */
-export type BoardReadings = Pick<HarmonicsReport, 'lines' | 'lineToLine' | 'hasNeutral' | 'neutral' | 'orders' | 'phaseNames'>;
+export type BoardReadings = Pick<HarmonicsReport, 'lines' | 'lineToLine' | 'hasNeutral' | 'neutral' | 'orders' | 'phaseNames' | 'voltageDistortion'>;
 
 export function currentTable(r: BoardReadings): string {
   const label = labeller(r);
@@ -43,15 +43,20 @@ export function currentTable(r: BoardReadings): string {
 
 export function voltageTable(r: BoardReadings): string {
   const label = labeller(r);
+  // THD and the largest order as the verdict under the table judges them: over a level, with the decimals to read over it.
+  const figures = (bus: string, d: DistortionReading) => {
+    const texts = busFigureTexts(r.voltageDistortion, bus);
+    return [d.thdPercent === null ? '-' : texts.thd(d.thdPercent), largestOrder(d, texts.order)];
+  };
   // Without a neutral only the line-to-line voltages exist at the board; the power factors are the board's.
   if (!r.hasNeutral && r.lineToLine.length)
     return renderTable(
       [{ header: 'at board', align: 'left' }, { header: 'rms V' }, { header: 'THD %' }, { header: 'largest', align: 'left' }],
-      r.lineToLine.map((p) => [label(p.pair), fixed(p.voltage.rms, 1), thd(p.voltage), largestOrder(p.voltage)]),
+      r.lineToLine.map((p) => [label(p.pair), fixed(p.voltage.rms, 1), ...figures(p.pair, p.voltage)]),
     );
   const rows = [
-    ...r.lines.map((l) => [label(`${l.phase}-N`), fixed(l.voltage.rms, 1), thd(l.voltage), largestOrder(l.voltage), signedPfText(l.truePf), signedPfText(l.displacementPf)]),
-    ...r.lineToLine.map((p) => [label(p.pair), fixed(p.voltage.rms, 1), thd(p.voltage), largestOrder(p.voltage), '', '']),
+    ...r.lines.map((l) => [label(`${l.phase}-N`), fixed(l.voltage.rms, 1), ...figures(`${l.phase}-N`, l.voltage), signedPfText(l.truePf), signedPfText(l.displacementPf)]),
+    ...r.lineToLine.map((p) => [label(p.pair), fixed(p.voltage.rms, 1), ...figures(p.pair, p.voltage), '', '']),
   ];
   return renderTable(
     [{ header: 'at board', align: 'left' }, { header: 'rms V' }, { header: 'THD %' }, { header: 'largest', align: 'left' }, { header: 'true PF' }, { header: 'displ. PF' }],
@@ -59,10 +64,10 @@ export function voltageTable(r: BoardReadings): string {
   );
 }
 
-function largestOrder(d: DistortionReading): string {
+function largestOrder(d: DistortionReading, percentText: (order: number, x: number) => string): string {
   if (d.orders.length === 0) return '-';
   const o = d.orders.reduce((a, b) => (b.magnitude > a.magnitude ? b : a));
-  return o.percentOfFundamental === null ? `h${o.order} ${fixed(o.magnitude, 1)}` : `h${o.order} ${fixed(o.percentOfFundamental, 1)} %`;
+  return o.percentOfFundamental === null ? `h${o.order} ${fixed(o.magnitude, 1)}` : `h${o.order} ${percentText(o.order, o.percentOfFundamental)} %`;
 }
 
 export function neutralLines(n: NeutralCheck): string[] {
@@ -196,7 +201,7 @@ export function renderHarmonicsReport(r: HarmonicsReport): string {
   );
   const v = r.voltageDistortion;
   const overBuses = v.buses.filter((b) => !b.ok).map((b) => labeller(r)(b.bus));
-  out.push(prose(`IEEE 519 voltage limits at ≤ 1 kV (${v.individualLimitPercent} % one order, ${v.thdLimitPercent} % THD): ${v.ok ? 'within on every bus voltage' : `EXCEEDED on ${overBuses.join(', ')} (see warnings)`}`));
+  out.push(prose(`bus voltages against the ${voltageBasisWords(v)}: ${v.ok ? 'within on every bus voltage' : `EXCEEDED on ${overBuses.join(', ')} (see warnings)`}`));
   if (r.neutral) {
     out.push(section('Neutral conductor'));
     out.push(...neutralLines(r.neutral));

@@ -1,9 +1,9 @@
 /**
  * InstallationHarmonicsReport → the text report of `trivar harmonics` on an installation: one
- * summary row per board (busbar distortion, incoming feeder, its neutral), the supply's IEEE 519
+ * summary row per board (busbar distortion against its voltage levels, incoming feeder, its neutral), the supply's IEEE 519
  * check, the scan and duty of each bank, then the full figures of the boards asked for.
  */
-import { jointCoverageWords, nearestWords, signedPfText, type BoardHarmonics, type InstallationHarmonicsReport, type JointScan } from '@trivar/core';
+import { jointCoverageWords, nearestWords, signedPfText, voltageBasisWords, type BoardHarmonics, type InstallationHarmonicsReport, type JointScan } from '@trivar/core';
 import { fixed, renderTable, renderTableWithin, section } from './textTable.js';
 import { wrapText } from './wrapText.js';
 import { treeName } from './boardTree.js';
@@ -13,6 +13,12 @@ import { alikeStates, currentTable, dutyLines, labeller, neutralLines, prose, re
 /** The busbar voltage with the highest THD: its label and THD. */
 function worstBus(b: BoardHarmonics): { bus: string; thd: number } | null {
   return b.voltageDistortion.buses.reduce<{ bus: string; thd: number } | null>((w, x) => (x.thdPercent !== null && (!w || x.thdPercent > w.thd) ? { bus: x.bus, thd: x.thdPercent } : w), null);
+}
+
+/** What the boards' voltages were judged against, with the levels: one basis for all, or each board's. */
+function basisNote(r: InstallationHarmonicsReport): string {
+  const words = [...new Set(r.boards.map((b) => voltageBasisWords(b.voltageDistortion)))];
+  return words.length === 1 ? words[0]! : r.boards.map((b) => `${b.board}: ${voltageBasisWords(b.voltageDistortion)}`).join('; ');
 }
 
 function boardTable(r: InstallationHarmonicsReport): string {
@@ -36,7 +42,7 @@ function boardTable(r: InstallationHarmonicsReport): string {
     [
       { header: 'board', align: 'left' },
       { header: 'V THD %', align: 'left' },
-      { header: '519 V', align: 'left' },
+      { header: 'V levels', align: 'left' },
       { header: 'feeder A', align: 'left' },
       { header: 'I THD %' },
       { header: 'N A' },
@@ -92,7 +98,7 @@ export function renderInstallationHarmonicsReport(r: InstallationHarmonicsReport
   out.push(boardTable(r));
   out.push(
     note(
-      'V THD: the busbar voltage with the highest THD; 519 V: IEEE 519 limits at ≤ 1 kV (5 % one order, 8 % THD) on every bus voltage; feeder A: the largest line current of the feeder into the board (the service feeder at the main board) and its THD; triplen A: the neutral’s orders 3, 9, 15…; N load: % of the feeder’s neutral rating; warnings below name their board.)',
+      `V THD: the busbar voltage with the highest THD; V levels: every bus voltage against the ${basisNote(r)}; feeder A: the largest line current of the feeder into the board (the service feeder at the main board) and its THD; triplen A: the neutral’s orders 3, 9, 15…; N load: % of the feeder’s neutral rating; warnings below name their board.)`,
     ),
   );
   if (r.tdd) {

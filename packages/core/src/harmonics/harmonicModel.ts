@@ -14,6 +14,8 @@ import type { CapacitanceTolerance } from './harmonicsResult.js';
 import type { HarmonicLoadSpec, HarmonicsBoardSpec, HarmonicsSectionSpec, InstalledBankSpec, LinearForm, SpectrumSpec } from './harmonicsSpec.js';
 import { TYPICAL_SPECTRA } from './typicalSpectra.js';
 import { assertBoardModel } from '../board/modelGuards.js';
+import { conventionsOf } from '../board/conventions/boardConventions.js';
+import { regionVoltageDistortionBasis, type VoltageDistortionBasis } from './voltageDistortionLimits.js';
 
 /** One order of a spectrum: magnitude as a fraction of the fundamental, angle relative to h × the fundamental angle. */
 export interface OrderContent {
@@ -61,6 +63,8 @@ export interface HarmonicModel {
   readonly pcc: { readonly shortCircuitRatio: number | null; readonly demandCurrentA: number | null } | null;
   readonly scan: { readonly maxOrder: number; readonly step: number };
   readonly capacitorStandard: 'ieee-18' | 'iec-60831-1';
+  /** What the board voltages are judged against: named in the file, or the board's region's document. */
+  readonly voltageDistortionLimits: { readonly basis: VoltageDistortionBasis; readonly from: 'board file' | 'region' };
   /** Capacitance tolerance of the bank's units, % (the duty is checked at each end). */
   readonly capacitanceTolerance: CapacitanceTolerance;
 }
@@ -170,6 +174,9 @@ export function resolveHarmonicModel(spec: Pick<HarmonicsBoardSpec, 'loads' | 'h
     pcc: section.pcc ? { shortCircuitRatio: section.pcc.shortCircuitRatio ?? null, demandCurrentA: section.pcc.demandCurrentA ?? null } : null,
     scan: { maxOrder: section.scan?.maxOrder ?? HARMONICS_DEFAULTS.scanMaxOrder, step: section.scan?.step ?? HARMONICS_DEFAULTS.scanStep },
     capacitorStandard: section.capacitorStandard ?? (board.frequencyHz === 60 ? 'ieee-18' : 'iec-60831-1'),
+    voltageDistortionLimits: section.voltageDistortionLimits
+      ? { basis: section.voltageDistortionLimits, from: 'board file' }
+      : { basis: regionVoltageDistortionBasis(conventionsOf(board).region), from: 'region' },
     capacitanceTolerance: {
       minusPercent: section.bank?.capacitanceTolerance?.minusPercent ?? CORRECTION_DEFAULTS.capacitanceTolerance.minusPercent,
       plusPercent: section.bank?.capacitanceTolerance?.plusPercent ?? CORRECTION_DEFAULTS.capacitanceTolerance.plusPercent,

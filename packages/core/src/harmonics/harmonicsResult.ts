@@ -4,6 +4,7 @@
  */
 import type { PhaseId } from '../board/boardModel.js';
 import type { PhaseNaming } from '../board/conventions/phaseNames.js';
+import type { VoltageDistortionBasis } from './voltageDistortionLimits.js';
 
 /** One harmonic order of a quantity. */
 export interface OrderReading {
@@ -85,20 +86,29 @@ export interface TddCheck {
   readonly source: string;
 }
 
-/** One bus voltage of the board against the IEEE 519 voltage limits. */
+/** One bus voltage of the board against the levels of its basis (IEC 61000-2-2, EN 50160 or IEEE 519). */
 export interface BusVoltageDistortion {
   /** `A-N` (to the neutral bar; to the centroid of the line voltages on a 3-wire board) or `A-B`. */
   readonly bus: string;
   readonly thdPercent: number | null;
   /** The largest order's voltage, % of the fundamental; null when there is none. */
   readonly largest: { readonly order: number; readonly percent: number } | null;
-  /** Orders above the individual limit, ascending, % of the fundamental. */
-  readonly ordersAbove: readonly { readonly order: number; readonly percent: number }[];
+  /** Orders above their level, ascending, % of the fundamental, each with the level it exceeds. */
+  readonly ordersAbove: readonly { readonly order: number; readonly percent: number; readonly limitPercent: number }[];
   readonly ok: boolean;
 }
 
 export interface VoltageDistortionCheck {
-  readonly individualLimitPercent: number;
+  /** The document the voltages are judged against (`harmonics.voltageDistortionLimits`). */
+  readonly basis: VoltageDistortionBasis;
+  /** Named in the board file, or the default of the board's region (IEC 61000-2-2 for IEC, IEEE 519 for North America). */
+  readonly basisFrom: 'board file' | 'region';
+  /** How reports name it: `IEC 61000-2-2 compatibility levels`. */
+  readonly basisName: string;
+  /** The one level every order is judged against (IEEE 519: 5 %); null where each order has its own (`orderLimits`). */
+  readonly individualLimitPercent: number | null;
+  /** The level of each order solved, % of the fundamental; null where the document gives none (judged through THD only). */
+  readonly orderLimits: readonly { readonly order: number; readonly limitPercent: number | null }[];
   readonly thdLimitPercent: number;
   /** Every bus voltage of the board: each phase, then each line-to-line pair. */
   readonly buses: readonly BusVoltageDistortion[];
@@ -298,14 +308,14 @@ export interface HarmonicsReport {
   readonly lineToLine: readonly { readonly pair: string; readonly voltage: DistortionReading }[];
   /**
    * False on a board without a neutral (3-wire): its line voltages (`lines[].voltage`) are to the mean of
-   * the three, a point no conductor reaches; reports and the IEEE 519 check read the line-to-line voltages.
+   * the three, a point no conductor reaches; reports and the voltage-level check read the line-to-line voltages.
    */
   readonly hasNeutral: boolean;
   readonly neutral: NeutralCheck | null;
   /** Board figures, arithmetic over the lines: ΣP / Σ(V·I). */
   readonly powerFactor: { readonly true: number | null; readonly displacement: number | null };
   readonly tdd: TddCheck | null;
-  /** The board's bus voltages against the IEEE 519 voltage limits (individual order and THD). */
+  /** The board's bus voltages against the levels of its basis (IEC 61000-2-2, EN 50160 or IEEE 519): each order and THD. */
   readonly voltageDistortion: VoltageDistortionCheck;
   readonly scan: ResonanceScan;
   readonly capacitorDuty: CapacitorDuty | null;

@@ -12,6 +12,7 @@ import type { BoardBaseSpec, LoadBaseSpec } from '../board/boardSchema.js';
 import { nameSchema } from '../board/nameSchemas.js';
 import { SPECTRUM_KINDS } from './typicalSpectra.js';
 import { toleranceSchema } from '../correction/correctionSpec.js';
+import { VOLTAGE_DISTORTION_BASES } from './voltageDistortionLimits.js';
 
 /** Highest harmonic order studied: IEEE 519-2014 limits stop at h = 50. */
 export const MAX_ORDER = 50;
@@ -123,6 +124,12 @@ export const harmonicsSectionSchema = z
       .optional()
       .describe('trivar correct: detuned variants compared with the plain bank — auto (5.67, 7 and 14 %), none, or one factor in %; default auto'),
     capacitorStandard: z.enum(['ieee-18', 'iec-60831-1']).optional().describe('limits the capacitor duty is judged against; default IEC 60831-1 at 50 Hz, IEEE 18 at 60 Hz'),
+    voltageDistortionLimits: z
+      .enum(VOLTAGE_DISTORTION_BASES)
+      .optional()
+      .describe(
+        'levels the board voltages are judged against, each order and THD: iec-61000-2-2 (compatibility levels of public LV networks), en50160 (supply levels at LV) or ieee-519 (5 % one order, 8 % THD at ≤ 1 kV); default iec-61000-2-2 on an IEC board, ieee-519 on a North-American one. Current distortion at the point of common coupling (pcc) is IEEE 519 whatever this says',
+      ),
   })
   .describe('a harmonic study for `trivar harmonics`');
 

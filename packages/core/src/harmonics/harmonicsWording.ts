@@ -3,11 +3,28 @@
  * assumptions and cautions, in one place.
  */
 import { distinctDigits } from '../correction/correctionWording.js';
-import type { BusVoltageDistortion, JointScan, NeutralCheck } from './harmonicsResult.js';
+import type { BusVoltageDistortion, JointScan, NeutralCheck, VoltageDistortionCheck } from './harmonicsResult.js';
+import { levelText } from './voltageDistortionLimits.js';
+import { ROUND_OFF_MARGIN } from '../analysis/boardWarnings.js';
 
 const pct = (x: number) => `${x.toFixed(1)} %`;
 /** A figure above its limit, with the decimals it needs to read above it (5.04 %, never "5.0 %, above 5 %"). */
 const above = (x: number, limit: number) => `${distinctDigits(x, limit, 1)[0]} %`;
+
+/**
+ * A bus voltage figure (%) as every table prints it: one decimal, or, above its level, the decimals it
+ * needs to read above it, as the warnings print it — a verdict beside it never contradicts the figure.
+ */
+export const percentAgainstLevel = (x: number, limit: number | null): string => (limit !== null && x > limit * (1 + ROUND_OFF_MARGIN) ? distinctDigits(x, limit, 1)[0] : x.toFixed(1));
+
+/** The THD and largest order of one bus as printed beside its verdict (`bus` from VoltageDistortionCheck.buses). */
+export function busFigureTexts(check: VoltageDistortionCheck, bus: string): { thd: (x: number) => string; order: (order: number, x: number) => string } {
+  const b = check.buses.find((x) => x.bus === bus);
+  return {
+    thd: (x) => percentAgainstLevel(x, b ? check.thdLimitPercent : null),
+    order: (order, x) => percentAgainstLevel(x, b?.ordersAbove.find((o) => o.order === order)?.limitPercent ?? null),
+  };
+}
 
 export const NEUTRAL_PRACTICE =
   'with mostly non-linear single-phase loads the neutral carries the triplen currents of all three phases and is counted as a current-carrying conductor (NEC 310.15, confirmed for the 2008 numbering); a neutral of twice the phase size is the usual practice for such feeders (IEEE Std 1100, from memory)';
@@ -59,16 +76,39 @@ export const harmonicsWarningText = {
   capacitorDuty: (label: string, branch: string, what: string) => `with ${label} the capacitors of branch ${branch} exceed their limit: ${what}`,
   continuousVoltage: (label: string, branch: string, pu: number, limit: number, ratedV: number) =>
     `with ${label}, at nominal capacitance and the loads as given, the capacitors of branch ${branch} run at ${pu.toFixed(3)} × their rated voltage (rms with harmonics), above the ${limit.toFixed(2)} × they stand continuously (IEC 60831-1; the 1.10 × the duty check allows is for 8 h in every 24 h): units rated at least ${Math.ceil((pu * ratedV) / 5) * 5} V run within it`,
-  voltageThd: (bus: string, thd: number, limit: number) => `voltage THD at the board on ${bus} is ${above(thd, limit)}, above the ${limit} % IEEE 519 limit for ≤ 1 kV`,
-  voltageIndividual: (buses: readonly BusVoltageDistortion[], limit: number) =>
-    `a single harmonic of the board voltage is above the ${limit} % IEEE 519 limit for ≤ 1 kV (% of the fundamental): ${buses
-      .map((b) => `${b.bus} ${b.ordersAbove.map((o) => `h${o.order} ${above(o.percent, limit)}`).join(' and ')}`)
-      .join(', ')}`,
+  voltageThd: (bus: string, thd: number, limit: number, basisName: string) => `voltage THD at the board on ${bus} is ${above(thd, limit)}, above ${levelText(limit)} % (${basisName})`,
+  /** Each order over its level, with the level: `L1-N h9 2.0 % (level 1.5 %)`; a flat limit is named once. */
+  voltageIndividual: (buses: readonly BusVoltageDistortion[], check: Pick<VoltageDistortionCheck, 'basisName' | 'individualLimitPercent'>) => {
+    const flat = check.individualLimitPercent;
+    const head =
+      flat === null
+        ? `a single harmonic of the board voltage is above its level (${check.basisName}; % of the fundamental)`
+        : `a single harmonic of the board voltage is above ${levelText(flat)} % (${check.basisName}; % of the fundamental)`;
+    return `${head}: ${buses
+      .map((b) => `${b.bus} ${b.ordersAbove.map((o) => `h${o.order} ${above(o.percent, o.limitPercent)}${flat === null ? ` (level ${levelText(o.limitPercent)} %)` : ''}`).join(' and ')}`)
+      .join(', ')}`;
+  },
   tdd: (phase: string, tdd: number, limit: number, orders: readonly number[]) =>
     `line ${phase}: TDD ${pct(tdd)} (IEEE 519 limit ${limit} % for this short-circuit ratio)${orders.length ? `; order${orders.length > 1 ? 's' : ''} ${orders.join(', ')} above the individual limits` : ''}`,
   idealSource: 'the supply has no impedance in the board file: harmonic currents make no voltage distortion and no bank can resonate with it — give supply.transformer or supply.impedance for a real answer',
   noBank: 'no bank in harmonics.bank: the scan shows the board as it is',
 };
+
+/**
+ * What the bus voltages were judged against, in words: `IEC 61000-2-2 compatibility levels (the default of
+ * the board's region): h5 6 %, h7 5 %, 8 % THD`. Every order solved with its level, or the one flat level.
+ */
+export function voltageBasisWords(check: Pick<VoltageDistortionCheck, 'basisName' | 'basisFrom' | 'individualLimitPercent' | 'orderLimits' | 'thdLimitPercent'>): string {
+  const from = check.basisFrom === 'board file' ? 'named in the board file' : 'the default of the board’s region';
+  const flat = check.individualLimitPercent;
+  const orders =
+    flat !== null
+      ? `${levelText(flat)} % one order`
+      : check.orderLimits.length
+        ? check.orderLimits.map((o) => `h${o.order} ${o.limitPercent === null ? 'no level (THD only)' : `${levelText(o.limitPercent)} %`}`).join(', ')
+        : 'a level per order';
+  return `${check.basisName} (${from}): ${orders}, ${levelText(check.thdLimitPercent)} % THD`;
+}
 
 /** A bank's state in words: `Workshop bank off`, `Workshop bank steps 1+2`. */
 export const bankStateWords = (board: string, label: string): string => `${board} bank ${label === 'bank off' ? 'off' : label}`;

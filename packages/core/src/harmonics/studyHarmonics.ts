@@ -286,13 +286,15 @@ export function harmonicsWarnings({ scan, neutral, voltageDistortion, duty, tdd,
   if (neutral?.ratioToPhase !== null && neutral?.ratioToPhase !== undefined && neutral.ratioToPhase > 1 + ROUND_OFF_MARGIN)
     warn('neutral-above-phase', harmonicsWarningText.neutralAbovePhase(neutral, splitPhase), neutral.ratioToPhase, 1);
   if (voltageDistortion) {
-    const { individualLimitPercent: individual, thdLimitPercent: thdLimit } = voltageDistortion;
+    const { thdLimitPercent: thdLimit, basisName } = voltageDistortion;
     for (const bus of voltageDistortion.buses)
-      if (bus.thdPercent !== null && bus.thdPercent > thdLimit) warn('voltage-thd', harmonicsWarningText.voltageThd(label(bus.bus), bus.thdPercent, thdLimit), bus.thdPercent, thdLimit);
-    // One warning for every bus with an order above the individual limit: the value is the worst.
+      if (bus.thdPercent !== null && bus.thdPercent > thdLimit * (1 + ROUND_OFF_MARGIN)) warn('voltage-thd', harmonicsWarningText.voltageThd(label(bus.bus), bus.thdPercent, thdLimit, basisName), bus.thdPercent, thdLimit);
+    // One warning for every bus with an order above its level: the value and threshold those of the order furthest above its level.
     const overIndividual = voltageDistortion.buses.filter((b) => b.ordersAbove.length);
-    if (overIndividual.length)
-      warn('voltage-individual', harmonicsWarningText.voltageIndividual(overIndividual.map((b) => ({ ...b, bus: label(b.bus) })), individual), Math.max(...overIndividual.flatMap((b) => b.ordersAbove.map((o) => o.percent))), individual);
+    if (overIndividual.length) {
+      const worst = overIndividual.flatMap((b) => b.ordersAbove).reduce((w, o) => (o.percent / o.limitPercent > w.percent / w.limitPercent ? o : w));
+      warn('voltage-individual', harmonicsWarningText.voltageIndividual(overIndividual.map((b) => ({ ...b, bus: label(b.bus) })), voltageDistortion), worst.percent, worst.limitPercent);
+    }
   }
   // One warning per order at risk, naming every bank state that resonates near it.
   for (const o of scan?.checkedOrders ?? []) {
@@ -338,7 +340,7 @@ export function analyseHarmonics(board: Board, model: HarmonicModel, options: Ha
   const scan = scanResonance(fundamental, model, { ...checkedOrders(ordersPresent(model)), ...(options.scanOrders ? { grid: options.scanOrders } : {}) });
   const duty = capacitorDuty(board, model, boardDutySolver(networks, options.solve));
   const phaseNames = conventionsOf(board).phaseNames;
-  const voltageDistortion = checkVoltageDistortion(lines, lineToLine, board.hasNeutral);
+  const voltageDistortion = checkVoltageDistortion(lines, lineToLine, board.hasNeutral, model.voltageDistortionLimits);
   // Warnings name phases, pairs and branches the way the board file names them (L1-N or A-N).
   const warnings = harmonicsWarnings({ scan, neutral, voltageDistortion, duty, tdd, splitPhase: board.system === 'split-phase' }, (term) => labelIn(phaseNames, term));
   return {

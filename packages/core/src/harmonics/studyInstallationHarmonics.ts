@@ -252,7 +252,7 @@ export function analyseInstallationHarmonics({ installation, models, bankBoards 
     const lines = readLines(orders);
     const lineToLine = readLineToLine(orders);
     const neutral = neutralCheck(board, orders, lines);
-    const voltageDistortion = checkVoltageDistortion(lines, lineToLine, board.hasNeutral);
+    const voltageDistortion = checkVoltageDistortion(lines, lineToLine, board.hasNeutral, models[b]!.voltageDistortionLimits);
     warnings.push(...harmonicsWarnings({ scan: null, neutral, voltageDistortion, duty: null, tdd: null, splitPhase: board.system === 'split-phase' }, label).map((w) => ({ ...w, board: board.name })));
     return {
       board: board.name,

@@ -9,7 +9,8 @@ import type { CorrectionReport } from '../../correction/correctionResult.js';
 import type { CorrectionComparison } from '../../correction/compareCorrections.js';
 import { correctionComparisonSection } from './correctionComparisonBlocks.js';
 import type { HarmonicsReport } from '../../harmonics/harmonicsResult.js';
-import { harmonicsSection, HARMONICS_STANDARDS } from './harmonicsSection.js';
+import { harmonicsSection, harmonicsStandards } from './harmonicsSection.js';
+import type { VoltageDistortionCheck } from '../../harmonics/harmonicsResult.js';
 import type { HandCheckResult } from '../../handCheck/handCheckResult.js';
 import { handCheckSection } from './handCheckSection.js';
 import type { ReportDocument, ReportSection } from './reportDocument.js';
@@ -49,8 +50,13 @@ export interface BoardReportInput {
 export interface ClosingInput {
   readonly results: readonly BoardResult[];
   readonly correction: CorrectionReport | null;
-  /** A harmonic study of a board or an installation: its standards and cautions. */
-  readonly harmonics: Pick<HarmonicsReport, 'cautions'> | null;
+  /** A harmonic study of a board or an installation: its standards (the document each board's voltages were judged against) and cautions. */
+  readonly harmonics:
+    | (Pick<HarmonicsReport, 'cautions'> & {
+        readonly voltageDistortion?: Pick<VoltageDistortionCheck, 'basis'>;
+        readonly boards?: readonly { readonly voltageDistortion: Pick<VoltageDistortionCheck, 'basis'> }[];
+      })
+    | null;
   readonly handCheck: HandCheckResult | null;
   /** Extra assumptions (e.g. of an installation). @defaultValue [] */
   readonly assumptions?: readonly string[];
@@ -68,7 +74,7 @@ export function closingSections(input: ClosingInput): ReportSection[] {
     ...BOARD_STANDARDS,
     ...(input.results.some((r) => r.sequences) ? THREE_PHASE_STANDARDS : []),
     ...(correction ? CORRECTION_STANDARDS : []),
-    ...(harmonics ? HARMONICS_STANDARDS : []),
+    ...(harmonics ? harmonicsStandards([...(harmonics.voltageDistortion ? [harmonics.voltageDistortion.basis] : []), ...(harmonics.boards ?? []).map((b) => b.voltageDistortion.basis)]) : []),
   ];
   const cautions = [...new Set([...(correction?.cautions ?? []), ...(harmonics?.cautions ?? []), ...(handCheck?.cautions ?? []), ...input.results.flatMap((r) => r.cautions)])];
   return [

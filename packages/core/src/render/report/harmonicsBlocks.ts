@@ -1,10 +1,12 @@
 /**
  * Report blocks of a harmonic study, shared by the board section and the
  * installation's sections: currents and voltages with harmonics, the neutral,
- * IEEE 519 (current and bus voltage), the resonance scan and capacitor duty.
+ * IEEE 519 at the feed, the bus voltages against their basis (IEC 61000-2-2, EN 50160
+ * or IEEE 519), the resonance scan and capacitor duty.
  * Phases and branches as the file names them (the labeller it hands in).
  */
 import type {
+  BusVoltageDistortion,
   CapacitorDuty,
   DistortionReading,
   HarmonicLineReading,
@@ -16,9 +18,10 @@ import type {
   VoltageDistortionCheck,
 } from '../../harmonics/harmonicsResult.js';
 import { conditionWords } from '../../harmonics/dutyConditions.js';
-import { jointCoverageWords, nearestWords } from '../../harmonics/harmonicsWording.js';
+import { busFigureTexts, jointCoverageWords, nearestWords, percentAgainstLevel, voltageBasisWords } from '../../harmonics/harmonicsWording.js';
 import type { PhaseLabeller } from '../../board/conventions/phaseNames.js';
 import { fixed } from '../svgText.js';
+import { levelText } from '../../harmonics/voltageDistortionLimits.js';
 import { renderImpedanceScan } from '../renderImpedanceScan.js';
 import type { ReportBlock } from './reportDocument.js';
 import { signedPfText } from '../powerFactorText.js';
@@ -47,42 +50,59 @@ export function harmonicCurrentTable(lines: readonly HarmonicLineReading[], neut
 
 /** Each line's voltage with harmonics and its true and displacement power factor. */
 export function harmonicVoltageTable(
-  h: { readonly lines: readonly HarmonicLineReading[]; readonly lineToLine: readonly { readonly pair: string; readonly voltage: DistortionReading }[]; readonly hasNeutral: boolean },
+  h: {
+    readonly lines: readonly HarmonicLineReading[];
+    readonly lineToLine: readonly { readonly pair: string; readonly voltage: DistortionReading }[];
+    readonly hasNeutral: boolean;
+    readonly voltageDistortion: VoltageDistortionCheck;
+  },
   label: PhaseLabeller,
   caption: string,
 ): ReportBlock {
   const { lines } = h;
+  // THD as the bus table beside it prints it: over its limit, with the decimals to read over it.
+  const thdOf = (bus: string, d: DistortionReading) => (d.thdPercent === null ? '—' : busFigureTexts(h.voltageDistortion, bus).thd(d.thdPercent));
   // Without a neutral only the line-to-line voltages exist at the board.
   if (!h.hasNeutral && h.lineToLine.length)
     return {
       kind: 'table',
       caption: caption.replace('Voltages and power factor', 'Line-to-line voltages'),
       columns: [{ label: 'Lines' }, { label: 'rms V', align: 'right' }, { label: 'THD %', align: 'right' }],
-      rows: h.lineToLine.map((p) => [label(p.pair), fixed(p.voltage.rms, 1), orDash(p.voltage.thdPercent, 1)]),
+      rows: h.lineToLine.map((p) => [label(p.pair), fixed(p.voltage.rms, 1), thdOf(p.pair, p.voltage)]),
     };
   return {
     kind: 'table',
     caption,
     columns: [{ label: 'Line' }, { label: 'rms V', align: 'right' }, { label: 'THD %', align: 'right' }, { label: 'true PF', align: 'right' }, { label: 'displacement PF', align: 'right' }],
-    rows: lines.map((l) => [label(l.phase), fixed(l.voltage.rms, 1), orDash(l.voltage.thdPercent, 1), signedPfText(l.truePf, '—'), signedPfText(l.displacementPf, '—')]),
+    rows: lines.map((l) => [label(l.phase), fixed(l.voltage.rms, 1), thdOf(`${l.phase}-N`, l.voltage), signedPfText(l.truePf, '—'), signedPfText(l.displacementPf, '—')]),
   };
 }
 
-/** Every bus voltage against the IEEE 519 voltage limits. */
+const againstLevel = percentAgainstLevel;
+
+/** Every bus voltage against the levels of its basis (IEC 61000-2-2, EN 50160 or IEEE 519), each failing order with the level it exceeds. */
 export function voltageDistortionTable(check: VoltageDistortionCheck, label: PhaseLabeller, caption: string): ReportBlock {
+  const flat = check.individualLimitPercent;
+  const levels = flat !== null ? `${levelText(flat)} % one order` : 'a level per order';
   return {
     kind: 'table',
-    caption: `${caption} (IEEE 519: ${fixed(check.individualLimitPercent, 1)} % one order, ${fixed(check.thdLimitPercent, 1)} % THD)`,
-    columns: [{ label: 'Bus' }, { label: 'THD %', align: 'right' }, { label: 'Largest order' }, { label: 'Orders over the limit' }, { label: 'Verdict' }],
+    caption: `${caption} (${check.basisName}: ${levels}, ${levelText(check.thdLimitPercent)} % THD)`,
+    columns: [{ label: 'Bus' }, { label: 'THD %', align: 'right' }, { label: 'Largest order' }, { label: 'Orders over their level' }, { label: 'Verdict' }],
     rows: check.buses.map((b) => [
       label(b.bus),
-      orDash(b.thdPercent, 1),
-      b.largest ? `h${b.largest.order} ${fixed(b.largest.percent, 1)} %` : '—',
-      b.ordersAbove.map((o) => `h${o.order} ${fixed(o.percent, 1)} %`).join(', ') || 'none',
+      b.thdPercent === null ? '—' : againstLevel(b.thdPercent, check.thdLimitPercent),
+      b.largest ? `h${b.largest.order} ${largestText(b)} %` : '—',
+      b.ordersAbove.map((o) => `h${o.order} ${againstLevel(o.percent, o.limitPercent)} % (level ${levelText(o.limitPercent)} %)`).join(', ') || 'none',
       b.ok ? 'within limits' : 'exceeds',
     ]),
-    note: check.source,
+    note: `Judged against the ${voltageBasisWords(check)}. ${check.source}.`,
   };
+}
+
+/** The largest order as the column beside it prints it where it is over its level. */
+function largestText(b: BusVoltageDistortion): string {
+  const over = b.ordersAbove.find((o) => o.order === b.largest!.order);
+  return over ? againstLevel(over.percent, over.limitPercent) : fixed(b.largest!.percent, 1);
 }
 
 /** The neutral's current, its share of triplen orders, its loading and the usual sizing practice. */

@@ -1,6 +1,6 @@
 /**
  * The harmonic study of an installation as report sections: an overview (a row
- * per board, IEEE 519 at the supply intake, spectra, assumptions, warnings
+ * per board with its busbar against its voltage levels, IEEE 519 at the supply intake, spectra, assumptions, warnings
  * naming their board), then one section per board (the feeder into it, its
  * busbar, its neutral, and the scan and duty of a bank on it). The blocks are
  * the board report's (harmonicsBlocks.ts).
@@ -18,6 +18,12 @@ function worstBusWords(b: BoardHarmonics, label: PhaseLabeller): string {
   return worst ? `${fixed(worst.thd, 1)} ${label(worst.bus)}` : '—';
 }
 
+/** What the boards' voltages were judged against: one basis, or each board's. */
+export function basesWords(r: InstallationHarmonicsReport): string {
+  const names = [...new Set(r.boards.map((b) => b.voltageDistortion.basisName))];
+  return names.length === 1 ? names[0]! : r.boards.map((b) => `${b.voltageDistortion.basisName} (${b.board})`).join(', ');
+}
+
 function boardsTable(r: InstallationHarmonicsReport, label: PhaseLabeller): ReportBlock {
   return {
     kind: 'table',
@@ -25,7 +31,7 @@ function boardsTable(r: InstallationHarmonicsReport, label: PhaseLabeller): Repo
     columns: [
       { label: 'Board' },
       { label: 'V THD %' },
-      { label: 'IEEE 519 V' },
+      { label: 'Voltage levels' },
       { label: 'Feeder A' },
       { label: 'I THD %', align: 'right' },
       { label: 'N A', align: 'right' },
@@ -48,7 +54,7 @@ function boardsTable(r: InstallationHarmonicsReport, label: PhaseLabeller): Repo
         signedPfText(b.powerFactor.true, '—'),
       ];
     }),
-    note: 'V THD: the busbar voltage with the highest THD; Feeder A: the largest line current of the feeder into the board (the service feeder at the main board) and its THD; Triplen A: orders 3, 9, 15… in that feeder’s neutral; N load: % of its neutral rating.',
+    note: `V THD: the busbar voltage with the highest THD; Voltage levels: every bus voltage of the board against the ${basesWords(r)}; Feeder A: the largest line current of the feeder into the board (the service feeder at the main board) and its THD; Triplen A: orders 3, 9, 15… in that feeder’s neutral; N load: % of its neutral rating.`,
   };
 }
 
