@@ -101,7 +101,7 @@ describe("a circuit's voltage", () => {
     const out = runTrivar(['solve', write('boathouse.yaml', boathouse)]).stdout;
     const row = out.split('\n').find((l) => l.startsWith('  Winch motor'))!;
     expect(row).toContain(` ${worstBranch(winch).voltagePercent.toFixed(1)} `);
-    expect(out.replace(/\n +/g, ' ')).toContain('V: of the branch furthest from its nominal, above or below (the report quotes the same)');
+    expect(out.replace(/\n +/g, ' ')).toContain('V: the voltage of the branch furthest from its nominal, above or below, as the report quotes it.');
     const schedule = buildBoardReport({ spec, result, correction: null }).sections.find((s) => s.id === 'schedule')!.blocks[0]!;
     if (schedule.kind !== 'table') throw new Error('the schedule is a table');
     const reportRow = schedule.rows.find((r) => r[1] === 'Winch motor')!;

@@ -152,7 +152,7 @@ function loadTable(r: BoardResult): string {
       row.unshift(l.circuit ?? '');
       row.push([l.breakerA !== null ? `${fixed(l.breakerA, 0)} A` : '', l.poles !== null ? `${l.poles}P` : ''].filter(Boolean).join(' '));
     });
-  const notes = ['model: P constant power, I constant current, Z constant impedance, ZIP a mix · V: of the branch furthest from its nominal, above or below (the report quotes the same).'];
+  const notes = ['model: P constant power, I constant current, Z constant impedance, ZIP a mix · V: the voltage of the branch furthest from its nominal, above or below, as the report quotes it.'];
   if (scheduled) notes.push('no.: circuit number · breaker: rating and poles, as given in the file.');
   const asDelta = r.loads.filter(solvedAsEquivalentDelta).map((l) => `"${l.name}"`);
   if (asDelta.length)
