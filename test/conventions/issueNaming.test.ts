@@ -50,7 +50,7 @@ describe('issues in a file written in L1/L2/L3', () => {
   it('a per-phase feeder conductor and source impedance', () => {
     const z = { r: 0.01, x: 0.01 };
     const issues = issuesOf(edit((b) => {
-      b.feeder = { line: { L1: z, L2: z, L3: z } };
+      b.feeder = { line: { L1: z, L2: z, L3: z }, neutral: z };
       delete b.supply.transformer;
       b.supply.impedance = { L1: z, L2: z, L3: z };
     }));

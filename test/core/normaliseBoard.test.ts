@@ -11,7 +11,7 @@ describe('normaliseBoard', () => {
     expect(b.sourceImpedance.im).toBeCloseTo((3 * z) / Math.sqrt(10), 12);
   });
   it('takes feeder impedance from length × per-km values', () => {
-    const b = normaliseBoard(parseBoard({ supply: base, feeder: { line: { lengthM: 40, rOhmPerKm: 0.32, xOhmPerKm: 0.08 } }, loads: [{ name: 'x', connection: 'A-N', kW: 1, pf: 1 }] }));
+    const b = normaliseBoard(parseBoard({ supply: base, feeder: { line: { lengthM: 40, rOhmPerKm: 0.32, xOhmPerKm: 0.08 }, neutral: { r: 0, x: 0 } }, loads: [{ name: 'x', connection: 'A-N', kW: 1, pf: 1 }] }));
     expect(b.lineImpedance.re).toBeCloseTo(0.0128, 12);
     expect(b.lineImpedance.im).toBeCloseTo(0.0032, 12);
     expect(b.neutralImpedance).toEqual({ re: 0, im: 0 });

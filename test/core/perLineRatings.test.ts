@@ -47,7 +47,7 @@ describe('ratings per line conductor', () => {
   });
 
   it('one rating for every line stays the short form', () => {
-    const even = solveBoard({ name: 'even', supply, feeder: { lengthM: 20, line: { mm2: 16, ratingA: 40 } }, loads });
+    const even = solveBoard({ name: 'even', supply, feeder: { lengthM: 20, line: { mm2: 16, ratingA: 40 }, neutral: { mm2: 16 } }, loads });
     expect(even.warnings.filter((w) => w.code === 'line-over-rating').map((w) => w.threshold)).toEqual([40, 40]);
   });
 });

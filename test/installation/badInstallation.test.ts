@@ -111,11 +111,25 @@ describe('bad installation input', () => {
     });
     expect(validateInstallation(input).ok).toBe(true);
   });
-  it('the service feeder keeps the board-file rules: a line or a neutral alone is accepted there, as in a board file', () => {
-    for (const feeder of [{ lengthM: 20, line: { mm2: 95 } }, { neutral: { r: 0.05, x: 0.01 } }]) {
-      expect(validateInstallation(editInstallation((b) => (b.boards[0].feeder = feeder))).ok).toBe(true);
-      expect(validateBoard({ ...editBoard((b) => (b.supply.system = 'three-phase-4wire')), feeder }).ok).toBe(true);
-    }
+  it('the service feeder keeps the board-file rule for a neutral alone: accepted there, as in a board file', () => {
+    const feeder = { neutral: { r: 0.05, x: 0.01 } };
+    expect(validateInstallation(editInstallation((b) => (b.boards[0].feeder = feeder))).ok).toBe(true);
+    expect(validateBoard({ ...editBoard((b) => (b.supply.system = 'three-phase-4wire')), feeder }).ok).toBe(true);
+  });
+  it('lines without a neutral: one rule for every feeder, refused where loads return through it (the service feeder, a board file, a sub-board)', () => {
+    // Taken as written the neutral would have no impedance: half the drop and loss of a real one on a single-phase load.
+    const feeder = { lengthM: 20, line: { mm2: 95 } };
+    const expected = /expected the neutral conductor, which .+ return through: its size with the length \(e\.g\. neutral: \{ mm2: … \}\), or r: 0, x: 0 for a neutral of no impedance/;
+    const service = validateInstallation(editInstallation((b) => (b.boards[0].feeder = feeder)));
+    expect(service.ok).toBe(false);
+    // The service feeder carries the neutral current of every board beyond it: the flats on the floors.
+    if (!service.ok) expect(service.issues.find((i) => i.path === 'boards[0].feeder.neutral')?.message).toMatch(/^boards\[0\]\.feeder\.neutral: expected the neutral conductor, which "flat 1" on Floor 1 return through/);
+    const file = validateBoard({ ...editBoard((b) => (b.supply.system = 'three-phase-4wire')), feeder, loads: [{ name: 'kettle', connection: 'B-N', kW: 3 }] });
+    expect(file.ok).toBe(false);
+    if (!file.ok) expect(file.issues).toEqual([expect.objectContaining({ code: 'missing', path: 'feeder.neutral', message: expect.stringMatching(expected) })]);
+    if (!file.ok) expect(file.issues[0]!.message).toContain('which "kettle" return through');
+    // A board of three-phase loads only needs no neutral: a three-core feeder stays valid.
+    expect(validateBoard({ ...editBoard((b) => (b.supply.system = 'three-phase-4wire')), feeder }).ok).toBe(true);
   });
   it.each(installationCases)('%s', (_, input, code, path, wording) => {
     const result = validateInstallation(input);

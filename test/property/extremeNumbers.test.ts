@@ -54,7 +54,7 @@ describe('extreme finite numbers', () => {
       fc.property(boardArb, (b) => {
         const spec = {
           supply: { system: b.system, voltage: { lineToLine: b.lineToLine }, frequencyHz: 50, ...(b.transformer ? { transformer: b.transformer } : {}) },
-          ...(b.feeder ? { feeder: { line: b.feeder } } : {}),
+          ...(b.feeder ? { feeder: { line: b.feeder, ...(b.system === 'three-phase-4wire' ? { neutral: b.feeder } : {}) } } : {}),
           loads: b.loads
             .filter((l) => b.system === 'three-phase-4wire' || !l.connection.endsWith('-N'))
             .map((l, k) => ({ name: `load ${k}`, connection: l.connection, ...l.rating, ...(l.model ? { model: l.model } : {}) })),

@@ -89,7 +89,7 @@ describe('open-neutral continuation, regression', () => {
     const spec: BoardSpec = {
       name: 'heavy B-C capacitive load, one light A-N load',
       supply: { system: 'three-phase-4wire', voltage: { lineToNeutral: 230 }, frequencyHz: 50, impedance: { r: 0.103, x: 0 } },
-      feeder: { line: { lengthM: 5, rOhmPerKm: 18.5, xOhmPerKm: 0 } },
+      feeder: { line: { lengthM: 5, rOhmPerKm: 18.5, xOhmPerKm: 0 }, neutral: { r: 0, x: 0 } },
       loads: [
         { name: 'L1', connection: 'B-C', kW: 7.4, pf: 0.5, sense: 'leading', model: 'constant-impedance' },
         { name: 'L2', connection: 'C-A', kW: 0.15, pf: 0.5, model: 'constant-impedance' },

@@ -50,7 +50,7 @@ const withLoads = (spec: BoardSpec, extra: readonly LoadSpec[]): BoardSpec => ({
 const CATEGORIES: readonly { name: string; arb: fc.Arbitrary<BoardSpec>; neutralOpen?: boolean }[] = [
   {
     name: '4-wire, solid neutral',
-    arb: boardSpecArb({ systems: ['three-phase-4wire'], source: 'non-ideal' }).map((s) => ({ ...s, feeder: { ...(s.feeder?.line ? { line: s.feeder.line } : {}) } })),
+    arb: boardSpecArb({ systems: ['three-phase-4wire'], source: 'non-ideal' }).map((s) => ({ ...s, feeder: { ...(s.feeder?.line ? { line: s.feeder.line, neutral: { r: 0, x: 0 } } : {}) } })),
   },
   {
     name: '4-wire, neutral impedance',

@@ -67,6 +67,7 @@ export { solveBoard } from './boardFile/solveBoard.js';
 
 // Analysis
 export type * from './analysis/boardResult.js';
+export { worstBranch } from './analysis/readLoads.js';
 export type { SequenceSet } from './analysis/symmetricalComponents.js';
 export { sequenceComponents } from './analysis/symmetricalComponents.js';
 export { deviationFromAveragePercent, unbalanceFactorFromLineMagnitudes, motorDeratingFactor } from './analysis/unbalanceIndices.js';
@@ -292,7 +293,7 @@ export type { VoltageUnbalanceLimit } from './board/conventions/unbalanceLimits.
 export { VOLTAGE_UNBALANCE_LIMITS, unbalanceFigure } from './board/conventions/unbalanceLimits.js';
 export { judgedNominals, bandDecimalsOf } from './analysis/voltageCheck.js';
 export { judgedNominalOf, STANDARD_STAR_PAIRS } from './board/nominalVoltages.js';
-export { nominalVoltageWords, nonStandardNominalNote, sourceHeldLine, sourceVoltageWords } from './render/nominalVoltageWords.js';
+export { idealSourceHolds, nominalVoltageWords, nonStandardNominalNote, sourceHeldLine, sourceVoltageWords } from './render/nominalVoltageWords.js';
 export type { Region, RegionBasis } from './board/conventions/region.js';
 export { inferRegion } from './board/conventions/region.js';
 export type { BoardConventions } from './board/conventions/boardConventions.js';

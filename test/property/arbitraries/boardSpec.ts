@@ -260,7 +260,8 @@ function supplyImpedances(raw: RawSource, system: SystemKind, ln: number, totalV
         ? { transformer: { kVA: (raw.transformerMargin * totalVA) / 1000, impedancePercent: 3 + 300 * raw.sourceDrop, xOverR: raw.xOverR } }
         : {};
   const line = conductor(raw.line, raw.lineDrop);
-  const neutral = system === 'three-phase-3wire' ? undefined : conductor(raw.neutral, raw.neutralDrop);
+  // A feeder with line conductors states its neutral, a zero one too: a file without it is refused where loads use it.
+  const neutral = system === 'three-phase-3wire' ? undefined : (conductor(raw.neutral, raw.neutralDrop) ?? (line ? { r: 0, x: 0 } : undefined));
   const feeder = line || neutral ? { feeder: { ...(line ? { line } : {}), ...(neutral ? { neutral } : {}) } } : {};
   return { source, feeder };
 }

@@ -1,5 +1,5 @@
 /** InstallationResult → the text report of `trivar solve` on an installation: a summary per board and per feeder. */
-import { BANKS_IN_SERVICE_BASIS, OPEN_NEUTRAL_BAND, lowestVoltagePercentText, percentBesideBand, bandWords, sourceHeldLine, bankInServiceWords, labelIn, unbalanceFigure, VOLTAGE_UNBALANCE_LIMITS, type InstallationResult } from '@trivar/core';
+import { idealSourceHolds, BANKS_IN_SERVICE_BASIS, OPEN_NEUTRAL_BAND, lowestVoltagePercentText, percentBesideBand, bandWords, sourceHeldLine, bankInServiceWords, labelIn, unbalanceFigure, VOLTAGE_UNBALANCE_LIMITS, type InstallationResult } from '@trivar/core';
 import { fixed, renderTable, section } from './textTable.js';
 import { treeName } from './boardTree.js';
 import { renderSolveReport } from './solveReport.js';
@@ -158,7 +158,8 @@ export interface InstallationReportOptions {
 }
 
 /** The one line an ideal supply gets: what it means for the figures, and how to give the real one. */
-const IDEAL_SOURCE_LINE = wrapText('ideal (zero source impedance: no transformer or impedance given): nominal voltage at its terminals whatever the load, so no drop or loss before the service feeder', '  source      ', '              ');
+const idealSourceLine = (board: InstallationResult['boards'][number]['result']['board']) =>
+  wrapText(`ideal (zero source impedance: no transformer or impedance given): ${idealSourceHolds(board)} whatever the load, so no drop or loss before the service feeder`, '  source      ', '              ');
 
 export function renderInstallationReport(r: InstallationResult, options: InstallationReportOptions): string {
   const first = r.boards[0]!.result.board;
@@ -172,7 +173,7 @@ export function renderInstallationReport(r: InstallationResult, options: Install
     [
       r.installation.name,
       `${SYSTEM_WORDS[r.installation.system] ?? r.installation.system} · ${volts} · ${first.frequencyHz} Hz · ${r.installation.boardCount} board${r.installation.boardCount === 1 ? '' : 's'}`,
-      ...[sourceHeldLine(first)].flatMap((held) => (held ? [wrapText(held, '', '  ')] : [])),
+      ...[sourceHeldLine(first, (p) => labelIn(r.boards[0]!.result.conventions.phaseNames, p))].flatMap((held) => (held ? [wrapText(held, '', '  ')] : [])),
     ].join('\n'),
     ...collapseBlock(r),
     section('Boards') + boardTable(r) + `\n${note(`min and max %nom: the lowest and highest voltage the limits judge (line-to-neutral, line-to-line, at the loads); ${unbalanceWords(r)}own: this board's circuits; fed: what enters its feeder at the sending end, the feeder's loss and the boards beyond it included (main board: what the source EMFs deliver).`)}`,
@@ -185,7 +186,7 @@ export function renderInstallationReport(r: InstallationResult, options: Install
         `  loads       ${fixed(t.loadKW, 3)} kW  ${fixed(t.loadKvar, 3)} kvar`,
         `  losses      ${fixed(t.lossesKW, 3)} kW  (${ideal ? 'every feeder' : 'source windings and every feeder'})`,
         `  from source ${fixed(t.sourceKW, 3)} kW  ${fixed(t.sourceKvar, 3)} kvar`,
-        ...(ideal ? [IDEAL_SOURCE_LINE] : []),
+        ...(ideal ? [idealSourceLine(first)] : []),
         `  lowest voltage ${lowestVoltagePercentText(r)} % of nominal, at ${t.lowestVoltageBoard} (${t.lowestVoltageAt})`,
         limitsLine(r),
         ...banksLine(r),

@@ -1,5 +1,5 @@
 /** BoardResult → the human-readable report of `trivar solve`. */
-import { bandDecimalsOf, percentBesideBand, voltageBesideBand, bandVoltsWords, nominalVoltageWords, nonStandardNominalNote, sourceHeldLine, bandWords, judgedNominals, labelIn, regionWords, signedPfText, assumedPfNote, sourceUnitsWords, type BoardResult } from '@trivar/core';
+import { idealSourceHolds, bandDecimalsOf, percentBesideBand, voltageBesideBand, bandVoltsWords, nominalVoltageWords, nonStandardNominalNote, sourceHeldLine, bandWords, judgedNominals, labelIn, regionWords, signedPfText, worstBranch, assumedPfNote, sourceUnitsWords, type BoardResult } from '@trivar/core';
 import { fixed, renderTable, renderTableWithin, section } from './textTable.js';
 import { REPORT_WIDTH, wrapText } from './wrapText.js';
 import { exportSentence, isExport, pfCell, varWords } from './powerFlowWords.js';
@@ -56,7 +56,7 @@ export function headerLines(r: BoardResult): string[] {
   const label = labeller(r);
   const volts = nominalVoltageWords(b);
   const seq = b.system.startsWith('three') ? ` · sequence ${label(b.sequence)}` : '';
-  const held = sourceHeldLine(b);
+  const held = sourceHeldLine(b, label);
   return [
     wrapText(b.name, ''),
     `${systemWords(b)} · ${volts} · ${b.frequencyHz} Hz${seq}${b.neutralOpen ? ' · NEUTRAL OPEN' : ''}`,
@@ -146,7 +146,7 @@ function phaseTable(r: BoardResult): string {
 function loadTable(r: BoardResult): string {
   const label = labeller(r);
   const rows = r.loads.map((l) => {
-    const worst = l.branches.reduce((a, b) => (Math.abs(b.voltagePercent - 100) > Math.abs(a.voltagePercent - 100) ? b : a));
+    const worst = worstBranch(l);
     const shown = voltageCells(r, true, { volts: worst.voltage.magnitude, percent: worst.voltagePercent });
     return [
       l.name,
@@ -168,7 +168,7 @@ function loadTable(r: BoardResult): string {
       row.unshift(l.circuit ?? '');
       row.push([l.breakerA !== null ? `${fixed(l.breakerA, 0)} A` : '', l.poles !== null ? `${l.poles}P` : ''].filter(Boolean).join(' '));
     });
-  const notes = ['model: P constant power, I constant current, Z constant impedance, ZIP a mix · V: the worst branch voltage.'];
+  const notes = ['model: P constant power, I constant current, Z constant impedance, ZIP a mix · V: the voltage of the branch furthest from its nominal, above or below, as the report quotes it.'];
   if (scheduled) notes.push('no.: circuit number · breaker: rating and poles, as given in the file.');
   const asDelta = r.loads.filter(solvedAsEquivalentDelta).map((l) => `"${l.name}"`);
   if (asDelta.length)
@@ -282,7 +282,7 @@ function powerBlock(r: BoardResult): string {
       ? [row('transformer', `${fixed(r.transformer.kVA, 2)} kVA at its terminals; ${fixed(r.transformer.loadingPercent, 0)} % of rated current (${fixed(r.transformer.ratedKVA, 0)} kVA)`)]
       : []),
     ...(r.board.idealSource
-      ? [wrapText('ideal (zero source impedance: no transformer or impedance given): nominal voltage at its terminals whatever the load', `  ${'source'.padEnd(16)} `, ' '.repeat(19))]
+      ? [wrapText(`ideal (zero source impedance: no transformer or impedance given): ${idealSourceHolds(r.board)} whatever the load`, `  ${'source'.padEnd(16)} `, ' '.repeat(19))]
       : []),
     ...(r.sourceUnits ? [wrapText(sourceUnitsWords(r.sourceUnits, labeller(r)), `  ${'supply units'.padEnd(16)} `, ' '.repeat(19))] : []),
     ...(r.incomer

@@ -2,10 +2,11 @@
  * NetworkSolution → BoardResult: per-phase and per-load readings, symmetrical
  * components, unbalance, power definitions, losses, warnings.
  */
-import { abs, absSquared, add, conj, mul, scale, sub, sum, toPhasor, ZERO, type ComplexValue } from '../complex.js';
+import { abs, absSquared, add, conj, degToRad, mul, polar, scale, sub, sum, toPhasor, ZERO, type ComplexValue } from '../complex.js';
 import { isThreePhase } from '../board/systemTopology.js';
 import { lineRatingOf, type PhaseId } from '../board/boardModel.js';
 import { judgedNominalOf } from '../board/nominalVoltages.js';
+import { balancedAnglesDeg } from '../board/normaliseBoard.js';
 import { terminalVoltage, type NetworkSolution } from '../network/solveNetwork.js';
 import { fortescueComponents, type SequenceSet } from './symmetricalComponents.js';
 import { deviationFromAveragePercent, nemaDerating } from './unbalanceIndices.js';
@@ -36,6 +37,20 @@ const percentOf = (x: ComplexValue, base: ComplexValue) => {
 };
 
 /** The main board of a supply of zero impedance: every source impedance nothing (a sub-board's is zero as its supply is the board above). */
+/**
+ * The source EMFs as entered, where they are not the balanced set at the model's nominal voltage that
+ * a file without `supply.emf` gets: the reports then describe the source by these, not by the nominal.
+ */
+function enteredEmf(board: NetworkSolution['board']): BoardResult['board']['sourceEmf'] {
+  const angles = balancedAnglesDeg(board.system, board.sequence);
+  const ln = board.nominalLineToNeutralV;
+  const asNominal = board.emf.every((e, k) => abs(sub(e, polar(ln, degToRad(angles[k] ?? 0)))) <= 1e-9 * ln);
+  return asNominal ? undefined : board.phases.map((phase, k) => {
+        const { magnitude, angleDeg } = toPhasor(board.emf[k]!);
+        return { phase, magnitude, angleDeg };
+      });
+}
+
 function hasIdealSource(board: NetworkSolution['board']): boolean {
   const none = (z: ComplexValue | undefined) => z === undefined || (z.re === 0 && z.im === 0);
   return (board.installation?.boardIndex ?? 0) === 0 && none(board.sourceImpedance) && (board.sourceImpedances ?? []).every(none) && none(board.sourceStarImpedance) && !board.sourceUnits?.length;
@@ -281,6 +296,7 @@ export function analyseSolution(solved: NetworkSolution): BoardResult {
   const lineRatingA = lineRatingOf(board, 0);
   const singlePhaseNeutralGuarded = board.phases.length === 1 && (board.neutralRatingA === null || lineRatingA === null || board.neutralRatingA >= lineRatingA);
   const nominal = judgedNominalOf(board);
+  const sourceEmf = enteredEmf(board);
   const cautions = !singlePhaseNeutralGuarded && warnings.some((w) => w.code.startsWith('neutral')) ? [NEUTRAL_CAUTION, GENERAL_CAUTION] : [GENERAL_CAUTION];
   return {
     board: {
@@ -291,6 +307,7 @@ export function analyseSolution(solved: NetworkSolution): BoardResult {
       nominalLineToNeutralV: nominal.ln,
       nominalLineToLineV: nominal.ll,
       ...(board.systemNominal ? { sourceNominal: { lineToNeutralV: board.nominalLineToNeutralV, lineToLineV: board.nominalLineToLineV } } : {}),
+      ...(sourceEmf ? { sourceEmf } : {}),
       neutralOpen: board.neutralOpen,
       ...(board.withoutNeutral ? { withoutNeutral: true as const } : {}),
       ...(hasIdealSource(board) ? { idealSource: true as const } : {}),

@@ -255,6 +255,11 @@ export interface BoardResult {
     readonly nominalLineToLineV: number | null;
     /** Present where the balanced source is not exactly the system nominal: a 400 V source is 230.9 V to neutral, judged at 230 V. */
     readonly sourceNominal?: { readonly lineToNeutralV: number; readonly lineToLineV: number | null };
+    /**
+     * Present where the source EMFs are not the balanced set at the model's nominal voltage (the file's
+     * `supply.emf` per phase): each phase's open-circuit EMF to the source star point, as entered.
+     */
+    readonly sourceEmf?: readonly { readonly phase: PhaseId; readonly magnitude: number; readonly angleDeg: number }[];
     readonly neutralOpen: boolean;
     /** Present where no neutral reaches this board of a system that has one: its feeder, or one upstream, has line conductors only. */
     readonly withoutNeutral?: true;

@@ -1,5 +1,6 @@
 /** Limits and all wording of the open-neutral study's findings. */
 import type { OpenNeutralLoadReading, OpenNeutralState, OpenNeutralWithoutRule } from './boardResult.js';
+import type { RegionWords } from '../board/conventions/regionWords.js';
 
 export const OPEN_NEUTRAL_LIMITS = {
   /**
@@ -84,6 +85,44 @@ export function openNeutralFindings(input: {
     );
   }
   return out;
+}
+
+/** The load seeing most above the line-to-line voltage between the board's lines in the same state. */
+export interface BeyondLineToLine {
+  readonly load: OpenNeutralLoadReading;
+  /** The highest line-to-line voltage at the board in that state, V. */
+  readonly lineToLineV: number;
+  /** True where only the all-impedance model goes beyond it, not the state reached. */
+  readonly impedanceModelOnly: boolean;
+  /** A line-to-neutral load draws leading vars (a capacitor, a filter): the rise is a series resonance. */
+  readonly capacitive: boolean;
+  /** "phases", or "legs" on a split-phase board. */
+  readonly phasesWord: string;
+}
+
+/**
+ * The cautions of the study, following its figures. With loads of one power factor the floating
+ * neutral stays inside the triangle of line voltages (Millman: a weighted mean with positive real
+ * weights), so no load sees more than the line-to-line voltage, as the region's first caution says.
+ * Unlike power factors make the weights complex and can take it outside: a little for lagging loads,
+ * far for a capacitive load on one line and an inductive one on another (a series resonance through
+ * the floating neutral). There the caution gives the figure instead, and with a capacitive load adds
+ * one about capacitors on line-to-neutral circuits.
+ */
+export function openNeutralCautions(words: Pick<RegionWords, 'openNeutralCautions' | 'openNeutralCautionsReaching'>, beyond: BeyondLineToLine | null): readonly string[] {
+  if (!beyond) return words.openNeutralCautions;
+  const { load, lineToLineV, phasesWord } = beyond;
+  const ratio = load.voltage / lineToLineV;
+  const times = ratio >= 1.2 ? `${fmt(ratio)} times` : 'above';
+  const model = beyond.impedanceModelOnly ? ' with every load as a constant impedance' : '';
+  const why = beyond.capacitive ? `: capacitive and inductive loads on different ${phasesWord} are in series resonance through the floating neutral` : '';
+  const reach = `line-to-neutral equipment can see more than the line-to-line voltage and be destroyed (here "${load.name}" would see ${fmt(load.voltage)} V${model}, ${times} the ${fmt(lineToLineV)} V between the board's lines${why})`;
+  const capacitors = beyond.capacitive
+    ? [
+        `Capacitors on line-to-neutral circuits (power-factor correction of single-phase equipment, the EMI filters of electronic equipment) can resonate with inductive loads on the other ${phasesWord} once the neutral is lost: the overvoltage lasts until the supply is disconnected, beyond what surge protective devices are made to absorb, and breaks down insulation and capacitor dielectrics (a capacitor can fail violently). Where a lost neutral is credible, correct power factor between lines (a delta or floating-star bank) rather than line to neutral.`,
+      ]
+    : [];
+  return [...words.openNeutralCautionsReaching(reach), ...capacitors];
 }
 
 export const OPEN_NEUTRAL_METHOD =

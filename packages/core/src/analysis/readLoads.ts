@@ -16,6 +16,15 @@ function lineCurrentOfLoad(branches: readonly LoadBranch[], states: readonly Bra
   return total;
 }
 
+/**
+ * The one voltage a circuit's row quotes, in `trivar solve` and in the report alike: the branch whose
+ * voltage is furthest from its nominal, above or below (the first such branch on a tie). A circuit with
+ * one branch is that branch.
+ */
+export function worstBranch(load: Pick<LoadReading, 'branches'>): BranchReading {
+  return load.branches.reduce((a, b) => (Math.abs(b.voltagePercent - 100) > Math.abs(a.voltagePercent - 100) ? b : a));
+}
+
 const terminalLabel = (t: string) => (t.startsWith('star:') ? 'star' : t);
 
 export function readLoads(solution: NetworkSolution, busVoltages: readonly ComplexValue[]): LoadReading[] {

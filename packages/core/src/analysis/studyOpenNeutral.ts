@@ -22,9 +22,9 @@ import { regionWords } from '../board/conventions/regionWords.js';
 import { conventionsOf } from '../board/conventions/boardConventions.js';
 import { labellerOf } from '../board/conventions/phaseNames.js';
 
-/** The cautions in the words of the board's region (see regionWords). */
-const openNeutralCautionsOf = (board: Board) => regionWords(conventionsOf(board).region, board.system).openNeutralCautions;
-import { OPEN_NEUTRAL_LIMITS, openNeutralFindings } from './openNeutralWording.js';
+/** The cautions in the words of the board's region (see regionWords), following the figures (openNeutralCautions). */
+const openNeutralCautionsOf = (board: Board, beyond: BeyondLineToLine | null) => openNeutralCautions(regionWords(conventionsOf(board).region, board.system), beyond);
+import { OPEN_NEUTRAL_LIMITS, openNeutralCautions, openNeutralFindings, type BeyondLineToLine } from './openNeutralWording.js';
 import { assertBoardModel } from '../board/modelGuards.js';
 import { judgedBranchNominal, judgedNominalOf } from '../board/nominalVoltages.js';
 
@@ -123,6 +123,29 @@ function distancePercent(a: NetworkSolution, b: NetworkSolution): number {
   return (100 * largest) / judgedNominalOf(a.board).ln;
 }
 
+/** The highest line-to-line voltage between the board's lines in a solution, V. */
+function highestLineToLine(board: Board, solution: NetworkSolution): number {
+  const v = board.phases.map((p) => terminalVoltage(solution, p));
+  let highest = 0;
+  v.forEach((a, i) => v.slice(i + 1).forEach((b) => (highest = a && b ? Math.max(highest, abs(sub(a, b))) : highest)));
+  return highest;
+}
+
+/**
+ * The load seeing most above the board's line-to-line voltage, in the state reached or else in the
+ * all-impedance model (both are printed); null where none does.
+ */
+function beyondLineToLine(board: Board, states: readonly { state: OpenNeutralState; solution: NetworkSolution; impedanceModelOnly: boolean }[], loads: readonly BoardLoad[]): BeyondLineToLine | null {
+  const capacitive = loads.some((l) => l.branches.some((b) => (b.from === 'N' || b.to === 'N') && b.sNominal.im < 0));
+  const phasesWord = board.system === 'split-phase' ? 'legs' : 'phases';
+  for (const { state, solution, impedanceModelOnly } of states) {
+    const lineToLineV = highestLineToLine(board, solution);
+    const worst = state.loads.reduce<OpenNeutralLoadReading | null>((w, l) => (l.voltage > lineToLineV && (!w || l.voltage > w.voltage) ? l : w), null);
+    if (worst) return { load: worst, lineToLineV, impedanceModelOnly, capacitive, phasesWord };
+  }
+  return null;
+}
+
 const asImpedance = (loads: readonly BoardLoad[]): BoardLoad[] => loads.map((l) => ({ ...l, branches: l.branches.map((b) => ({ ...b, zip: { z: 1, i: 0, p: 0 } })) }));
 
 /**
@@ -214,6 +237,11 @@ export function studyOpenNeutral(board: Board, options?: SolveOptions): OpenNeut
     .filter((s) => distancePercent(s, reachedSolution) > OPEN_NEUTRAL_LIMITS.sameStatePercent)
     .map((s) => readState(board, s, threshold));
   const impedanceModel = impedance ? readState(board, impedance, threshold) : null;
+  const beyond = beyondLineToLine(
+    board,
+    [{ state: reached, solution: reachedSolution, impedanceModelOnly: false }, ...(impedance && impedanceModel ? [{ state: impedanceModel, solution: impedance, impedanceModelOnly: true }] : [])],
+    [...board.loads, ...fedLoads],
+  );
 
   // Every line-to-neutral load on one line: with the neutral open they have no return path, so no
   // current flows through them whatever their model (a constant-power load's "collapse" is that).
@@ -248,7 +276,7 @@ export function studyOpenNeutral(board: Board, options?: SolveOptions): OpenNeut
     applicable: true,
     note: null,
     ...reached,
-    cautions: openNeutralCautionsOf(board),
+    cautions: openNeutralCautionsOf(board, beyond),
     reachedFromIntact: path.reachedOpen,
     collapseAtOhms: path.lostAtOhms,
     impedanceModel,

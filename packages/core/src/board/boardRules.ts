@@ -178,6 +178,46 @@ function ruleFeeder(board: BoardBaseSpec, naming: PhaseNaming): InputIssue[] {
   return feederIssues(board.feeder, 'feeder', board.supply.system, naming);
 }
 
+/** A load that returns current through the neutral (line-to-neutral, or a star tied to the neutral). */
+export const usesNeutral = (load: Pick<LoadBaseSpec, 'connection' | 'starPoint'>) => load.connection.endsWith('-N') || (load.connection === 'ABC-star' && load.starPoint !== 'floating');
+
+/** The loads a feeder's neutral returns, as the message names them (`"Kettle"`, or `"Kettle" on Floor 2`). */
+export interface NeutralUsers {
+  readonly lineToNeutral: readonly string[];
+  readonly star: readonly string[];
+}
+
+const listed = (names: readonly string[]) => `${names.slice(0, 3).join(', ')}${names.length > 3 ? ` and ${names.length - 3} more` : ''}`;
+
+/**
+ * What a feeder with line conductors and no neutral is missing. A star-connected load takes the neutral
+ * only because its star point is tied by default: a motor's star is not connected to a neutral, so the
+ * fix is usually `starPoint: floating`, not a conductor.
+ */
+export function missingNeutralWords({ lineToNeutral, star }: NeutralUsers): string {
+  const floating = `starPoint: floating on ${listed(star)} if ${star.length > 1 ? 'their star points are' : 'its star point is'} not tied to a neutral (a motor's is not)`;
+  if (lineToNeutral.length === 0)
+    return `${floating}: a star-connected load is taken as tied unless so written, and this feeder has no neutral; where the star point is tied, the neutral conductor's size with the length (e.g. neutral: { mm2: … })`;
+  const rest = star.length ? `; and ${floating}` : '';
+  return `the neutral conductor, which ${listed(lineToNeutral)} return through: its size with the length (e.g. neutral: { mm2: … }), or r: 0, x: 0 for a neutral of no impedance${rest}`;
+}
+
+/**
+ * A feeder written with line conductors but no neutral, on a board whose loads return current through
+ * the neutral, is refused: taken as written it would have a neutral of no impedance, half the drop and
+ * loss of a real one on a single-phase load, with nothing said. An installation judges the same for
+ * every feeder over the boards beyond it (installationRules.ts), so it leaves this rule out.
+ */
+export function ruleFeederNeutral(board: BoardBaseSpec): InputIssue[] {
+  const f = board.feeder;
+  if (!f?.line || f.neutral || !systemHasNeutral(board.supply.system)) return [];
+  const users = board.loads.filter(usesNeutral);
+  if (!users.length) return [];
+  const names = (ls: typeof users) => ls.map((l) => `"${l.name}"`);
+  const words = missingNeutralWords({ lineToNeutral: names(users.filter((l) => l.connection !== 'ABC-star')), star: names(users.filter((l) => l.connection === 'ABC-star')) });
+  return [inputIssue('missing', 'feeder.neutral', words)];
+}
+
 /** The ways to give a source impedance are exclusive; each has systems it suits. */
 function ruleUnequalSource(board: BoardBaseSpec, naming: PhaseNaming): InputIssue[] {
   const { impedance, transformer, bank, openDelta, zeroSequence, system } = board.supply;
@@ -377,4 +417,4 @@ export function partialBoardIssues(parts: BoardParts, naming: PhaseNaming): Inpu
 }
 
 /** The board's own rules; boardFile/ appends the studies' rules after these. */
-export const BOARD_RULES: readonly BoardRule[] = [ruleVoltageGiven, ruleSourceImpedance, ruleUnequalSource, ruleEmfPhases, ruleEmfSequence, ruleFeeder, ruleLoads];
+export const BOARD_RULES: readonly BoardRule[] = [ruleVoltageGiven, ruleSourceImpedance, ruleUnequalSource, ruleEmfPhases, ruleEmfSequence, ruleFeeder, ruleFeederNeutral, ruleLoads];

@@ -161,7 +161,7 @@ export const supplySchema = z.strictObject({
 export const feederSchema = z
   .strictObject({
     line: z.union([conductorSchema, perPhaseConductorSchema]).optional().describe('each line (phase) conductor: one for all, or one per phase'),
-    neutral: conductorSchema.optional().describe('the neutral conductor'),
+    neutral: conductorSchema.optional().describe('the neutral conductor: required with line conductors where loads on the board (or boards beyond it) return through the neutral; r: 0, x: 0 for a neutral of no impedance'),
     lengthM: within(PHYSICAL_RANGES.lengthM).optional().describe('route length for every conductor that does not give its own, m'),
     lengthFt: within(PHYSICAL_RANGES.lengthFt).optional().describe('route length for every conductor that does not give its own, ft'),
   })

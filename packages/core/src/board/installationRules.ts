@@ -5,7 +5,7 @@
  */
 import { inputIssue, type InputIssue } from '../errors.js';
 import type { BoardBaseSpec } from './boardSchema.js';
-import type { BoardRule } from './boardRules.js';
+import { missingNeutralWords, ruleFeederNeutral, usesNeutral, type BoardRule } from './boardRules.js';
 import type { PhaseNaming } from './conventions/phaseNames.js';
 import type { InstallationBaseSpec } from './installationSchema.js';
 import { systemHasNeutral } from './systemTopology.js';
@@ -104,16 +104,13 @@ function ruleTree(spec: InstallationBaseSpec): InputIssue[] {
 
 type BoardSpec = InstallationBaseSpec['boards'][number];
 
-/** A load that returns current through the neutral (line-to-neutral, or a star tied to the neutral). */
-const usesNeutral = (load: BoardSpec['loads'][number]) => load.connection.endsWith('-N') || (load.connection === 'ABC-star' && load.starPoint !== 'floating');
-
 /**
- * A sub-board feeder written with some conductors but not others would leave the missing ones
- * with no impedance: a silently low drop. A length or neutral without a line conductor is refused;
- * so is a line conductor without a neutral where loads on the board or beyond it return through it
- * (a three-core feeder to a board of three-phase loads stays valid). The main board's service
- * feeder keeps a board file's rules (where a neutral or line alone models that conductor's impedance),
- * so a board file and the same board written as an installation read the same.
+ * A feeder written with some conductors but not others would leave the missing ones with no
+ * impedance: a silently low drop. On every feeder, the service feeder too, a line conductor without
+ * a neutral is refused where loads on the board or beyond it return through it (a three-core feeder
+ * to a board of three-phase loads stays valid), as a board file's ruleFeederNeutral refuses it. On a
+ * sub-board a length or neutral without a line conductor is refused as well; the service feeder keeps
+ * a board file's rule there (a neutral alone models that conductor's impedance).
  */
 function ruleFeederConductors(spec: InstallationBaseSpec): InputIssue[] {
   const issues: InputIssue[] = [];
@@ -134,23 +131,11 @@ function ruleFeederConductors(spec: InstallationBaseSpec): InputIssue[] {
     }
     return found;
   };
-  const listed = (names: readonly string[]) => `${names.slice(0, 3).join(', ')}${names.length > 3 ? ` and ${names.length - 3} more` : ''}`;
-  /**
-   * A star-connected load takes the neutral only because its star point is tied by default: a motor's
-   * star is not connected to a neutral, so the fix is usually `starPoint: floating`, not a conductor.
-   */
-  const missingNeutralWords = ({ lineToNeutral, star }: { lineToNeutral: string[]; star: string[] }) => {
-    const floating = `starPoint: floating on ${listed(star)} if ${star.length > 1 ? 'their star points are' : 'its star point is'} not tied to a neutral (a motor's is not)`;
-    if (lineToNeutral.length === 0)
-      return `${floating}: a star-connected load is taken as tied unless so written, and this feeder has no neutral; where the star point is tied, the neutral conductor's size with the length (e.g. neutral: { mm2: … })`;
-    const rest = star.length ? `; and ${floating}` : '';
-    return `the neutral conductor, which ${listed(lineToNeutral)} return through: its size with the length (e.g. neutral: { mm2: … }), or r: 0, x: 0 for a neutral of no impedance${rest}`;
-  };
   spec.boards.forEach((b, i) => {
     const f = b.feeder;
-    if (!f || b.fedFrom === undefined) return;
+    if (!f) return;
     const path = `boards[${i}].feeder`;
-    if (!f.line && (f.neutral || f.lengthM !== undefined || f.lengthFt !== undefined)) {
+    if (b.fedFrom !== undefined && !f.line && (f.neutral || f.lengthM !== undefined || f.lengthFt !== undefined)) {
       issues.push(inputIssue('missing', `${path}.line`, 'the line conductors: a size (mm2, awg or kcmil) or rOhmPerKm with the length, or r and x; write r: 0, x: 0 for lines of no impedance'));
       return;
     }
@@ -177,5 +162,6 @@ const ruleBoards =
 
 /** The installation's rules: one radial tree, then every board against `boardRules`. */
 export function installationRulesWith<I extends InstallationBaseSpec>(boardRules: readonly BoardRule<BoardOfInstallation<I>>[]): readonly ((spec: I, naming: PhaseNaming) => InputIssue[])[] {
-  return [ruleTree, ruleFeederConductors, ruleBoards<I>(boardRules)];
+  // The feeder's neutral is judged over the boards beyond it (ruleFeederConductors), not board by board.
+  return [ruleTree, ruleFeederConductors, ruleBoards<I>(boardRules.filter((rule) => rule !== ruleFeederNeutral))];
 }

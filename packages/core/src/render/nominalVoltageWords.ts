@@ -26,8 +26,9 @@ export function nominalVoltageWords(board: BoardResult['board']): string {
  * What the source holds its terminals at with no load: the nominal voltage, or (where the nominal
  * pair is not exactly √3 apart) the figure the file gave and the other one it implies.
  */
-export function sourceVoltageWords(board: BoardResult['board'], unbalancedEmf: boolean): string {
+export function sourceVoltageWords(board: BoardResult['board'], unbalancedEmf: boolean, label: PhaseLabel = (p) => p): string {
   checkBoardFigures(board);
+  if (board.sourceEmf) return `as entered per phase: ${enteredEmfWords(board.sourceEmf, label)}`;
   if (unbalancedEmf) return 'unbalanced, as entered per phase';
   const s = board.sourceNominal;
   if (!s) return 'balanced at nominal voltage';
@@ -35,10 +36,28 @@ export function sourceVoltageWords(board: BoardResult['board'], unbalancedEmf: b
 }
 
 /** A text report's line under its header where the source is not exactly the nominal pair; null where it is. */
-export function sourceHeldLine(board: BoardResult['board']): string | null {
+export function sourceHeldLine(board: BoardResult['board'], label: PhaseLabel = (p) => p): string | null {
   checkBoardFigures(board);
   const s = board.sourceNominal;
+  if (board.sourceEmf) {
+    const rated = s ? `loads are rated at ${heldWords(s)} and limits` : 'loads are rated and limits';
+    return `source as entered per phase, not the nominal: ${enteredEmfWords(board.sourceEmf, label)} (open-circuit EMF to the star point); ${rated} are judged at the nominal ${nominalPairWords(board)}`;
+  }
   return s ? `source holds ${heldWords(s)} as given, and loads are rated there; limits are judged at the nominal ${nominalPairWords(board)}` : null;
+}
+
+type PhaseLabel = (phase: string) => string;
+
+/** "A 240 V ∠0°, B 225 V ∠-118°, C 232 V ∠121°": each EMF as entered, to 0.1 V and 0.1°. */
+const enteredEmfWords = (emf: NonNullable<BoardResult['board']['sourceEmf']>, label: PhaseLabel) =>
+  emf.map((e) => `${label(e.phase)} ${volts(e.magnitude)} V ∠${volts(e.angleDeg)}°`).join(', ');
+
+/**
+ * What an ideal source holds at its terminals, for the power balance: the nominal voltage, or the
+ * EMFs the file entered per phase.
+ */
+export function idealSourceHolds(board: BoardResult['board']): string {
+  return board.sourceEmf ? 'the EMFs entered per phase at its terminals' : 'nominal voltage at its terminals';
 }
 
 const heldWords = (s: NonNullable<BoardResult['board']['sourceNominal']>) =>

@@ -19,15 +19,24 @@ export interface RegionWords {
   readonly groundWord: 'earth' | 'ground';
   /** Cautions shown with a broken-neutral study. */
   readonly openNeutralCautions: readonly string[];
+  /**
+   * The same cautions where the study's figures go beyond the line-to-line voltage: the first one's
+   * "up to the line-to-line voltage" replaced by `reach`, what the equipment would see in words.
+   */
+  readonly openNeutralCautionsReaching: (reach: string) => readonly string[];
 }
 
-const IEC_OPEN_NEUTRAL_CAUTIONS: readonly string[] = [
-  'A broken neutral is a hazardous condition: line-to-neutral equipment on the lightly loaded phases can see up to the line-to-line voltage and be destroyed, and in TN-C-S installations exposed metalwork can become live.',
+/** What line-to-neutral equipment can see with the neutral broken, where nothing resonates. */
+const UP_TO_LINE_TO_LINE = (phases: string) => `line-to-neutral equipment on the lightly loaded ${phases} can see up to the line-to-line voltage and be destroyed`;
+
+const iecOpenNeutralCautions = (reach: string): readonly string[] => [
+  `A broken neutral is a hazardous condition: ${reach}, and in TN-C-S installations exposed metalwork can become live.`,
   'Never switch, fuse or disconnect the neutral (PEN) on its own; inspect neutral terminations and bonding regularly.',
 ];
+const IEC_OPEN_NEUTRAL_CAUTIONS: readonly string[] = iecOpenNeutralCautions(UP_TO_LINE_TO_LINE('phases'));
 
-const northAmericanCautions = (legs: string): readonly string[] => [
-  `A lost neutral is a hazardous condition: line-to-neutral equipment on the lightly loaded ${legs} can see up to the line-to-line voltage and be destroyed, and the neutral current can return through the grounding and bonding (water piping, cable sheaths, metal enclosures).`,
+const northAmericanCautions = (reach: string): readonly string[] => [
+  `A lost neutral is a hazardous condition: ${reach}, and the neutral current can return through the grounding and bonding (water piping, cable sheaths, metal enclosures).`,
   'Never switch, fuse or open the grounded conductor (neutral) on its own (NEC 240.22, from memory); inspect neutral terminations at the service, the meter base and the transformer regularly.',
 ];
 
@@ -39,7 +48,8 @@ export function regionWords(region: Region, system: SystemKind): RegionWords {
       neutralConductor: 'grounded conductor (neutral)',
       phasesWord: split ? 'leg' : 'phases',
       groundWord: 'ground',
-      openNeutralCautions: northAmericanCautions(split ? 'leg' : 'phases'),
+      openNeutralCautions: northAmericanCautions(UP_TO_LINE_TO_LINE(split ? 'leg' : 'phases')),
+      openNeutralCautionsReaching: northAmericanCautions,
     };
-  return { sourceNeutralPoint: 'the source star point', neutralConductor: 'neutral', phasesWord: 'phases', groundWord: 'earth', openNeutralCautions: IEC_OPEN_NEUTRAL_CAUTIONS };
+  return { sourceNeutralPoint: 'the source star point', neutralConductor: 'neutral', phasesWord: 'phases', groundWord: 'earth', openNeutralCautions: IEC_OPEN_NEUTRAL_CAUTIONS, openNeutralCautionsReaching: iecOpenNeutralCautions };
 }

@@ -19,6 +19,7 @@ import { labelIn, type PhaseNaming } from '../../board/conventions/phaseNames.js
 import { bandVolts, bandVoltsWords, bandWords, customLimits } from '../../board/conventions/voltageLimits.js';
 import { percentBesideBand, voltageBesideBand } from '../../board/conventions/voltageBesideBand.js';
 import { bandDecimalsOf, judgedNominals } from '../../analysis/voltageCheck.js';
+import { worstBranch } from '../../analysis/readLoads.js';
 import { renderPhasorDiagram } from '../renderPhasorDiagram.js';
 import { renderSequenceDiagram } from '../renderSequenceDiagram.js';
 import type { ReportBlock, ReportSection } from './reportDocument.js';
@@ -88,7 +89,7 @@ export function installationSection(spec: BoardBaseSpec, result: BoardResult): R
     ['Board', b.name],
     ...systemFacts(result),
     ['Source', sourceWords(s, result.conventions.phaseNames)],
-    ['Source voltages', sourceVoltageWords(b, s.emf !== undefined)],
+    ['Source voltages', sourceVoltageWords(b, s.emf !== undefined, (p) => labelIn(result.conventions.phaseNames, p))],
     ['Feeder, each line', conductorWords(spec.feeder?.line, spec.feeder, result.conventions.phaseNames)],
   ];
   if (result.neutral !== null) items.push(['Feeder, neutral', conductorWords(spec.feeder?.neutral, spec.feeder, result.conventions.phaseNames)]);
@@ -99,14 +100,15 @@ export function installationSection(spec: BoardBaseSpec, result: BoardResult): R
   return { id: 'installation', title: 'Board and supply', blocks };
 }
 
-const worstBranch = (l: LoadReading) => l.branches.reduce((w, br) => (br.voltagePercent < w.voltagePercent ? br : w), l.branches[0]!);
+/** The circuit's voltage as `trivar solve` quotes it (worstBranch); none for a circuit without branches. */
+const circuitVoltage = (l: LoadReading) => (l.branches.length ? worstBranch(l) : undefined);
 
 /** The panel schedule of a board: the circuits of the file (numbers, breakers) with their solved figures. */
 export function scheduleTable(loads: BoardBaseSpec['loads'], result: BoardResult): ReportBlock {
   const boardLoads = result.loads.filter((l) => l.origin === 'board');
   const rows = boardLoads.map((l, k) => {
     const entered = loads[k];
-    const worst = worstBranch(l);
+    const worst = circuitVoltage(l);
     // Circuit numbers and breakers only as the file gives them: a schedule never numbers circuits itself.
     return [
       entered?.circuit ?? '—',
@@ -137,7 +139,7 @@ export function scheduleTable(loads: BoardBaseSpec['loads'], result: BoardResult
       { label: 'V %nom', align: 'right' },
     ],
     rows,
-    note: `A: largest current the circuit draws from one line. V %nom: the lowest voltage across any part of the circuit, % of its nominal voltage.${
+    note: `A: largest current the circuit draws from one line. V %nom: the voltage across the part of the circuit furthest from its nominal, above or below, % of that nominal (as trivar solve quotes it).${
       loads.some((l) => l.breakerA !== undefined || l.circuit !== undefined) ? '' : ' No. and breaker: from the circuit, breakerA and poles fields of each load in the board file (none given here).'
     }${boardLoads.some((l) => l.pfAssumed) ? ` ${assumedPfNote(boardLoads.filter((l) => l.pfAssumed).map((l) => l.kW))}` : ''}`,
   };

@@ -61,7 +61,7 @@ export function installationDescription(spec: InstallationBaseSpec, result: Inst
     ['Installation', result.installation.name],
     ...systemFacts(main),
     ['Source', sourceWords(spec.supply, main.conventions.phaseNames)],
-    ['Source voltages', sourceVoltageWords(main.board, spec.supply.emf !== undefined)],
+    ['Source voltages', sourceVoltageWords(main.board, spec.supply.emf !== undefined, labellerOf(main.conventions.phaseNames))],
     ['Boards', `${result.installation.boardCount}, main board ${result.boards[0]!.name}`],
     ['Circuits', `${circuits}`],
   ];
