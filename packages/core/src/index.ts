@@ -293,5 +293,5 @@ export { inferRegion } from './board/conventions/region.js';
 export type { BoardConventions } from './board/conventions/boardConventions.js';
 export { conventionsOf } from './board/conventions/boardConventions.js';
 export type { VoltageCheck, VoltageExtreme } from './analysis/voltageCheck.js';
-export type { RegionWords } from './board/conventions/regionWords.js';
-export { regionWords } from './board/conventions/regionWords.js';
+export type { RegionWords, StarWord } from './board/conventions/regionWords.js';
+export { regionWords, starWordOf } from './board/conventions/regionWords.js';

@@ -10,6 +10,7 @@ import { CORRECTION_DEFAULTS } from './correctionDefaults.js';
 import { meteringPointIssues } from './meteringPoint.js';
 import { conventionsOf } from '../board/conventions/boardConventions.js';
 import { labellerOf } from '../board/conventions/phaseNames.js';
+import { starWordOf } from '../board/conventions/regionWords.js';
 
 type Rule = (spec: CorrectionSpec, board: Board) => InputIssue[];
 
@@ -77,10 +78,11 @@ function ruleStarPoint(spec: CorrectionSpec, board: Board): InputIssue[] {
   if (spec.starPoint === undefined) return [];
   if (spec.arrangement !== undefined && spec.arrangement !== 'star-bank')
     return [inputIssue('not_applicable', 'starPoint', 'starPoint only with arrangement star-bank', spec.starPoint)];
+  const star = starWordOf(conventionsOf(board).region);
   if (spec.starPoint === 'neutral' && (!board.hasNeutral || board.neutralOpen))
-    return [inputIssue('no_neutral', 'starPoint', 'floating: this board has no neutral to tie the star point to', spec.starPoint)];
+    return [inputIssue('no_neutral', 'starPoint', `floating: this board has no neutral to tie the ${star} point to`, spec.starPoint)];
   if (spec.starPoint === 'floating' && !threePhase(board))
-    return [inputIssue('not_applicable', 'starPoint', `neutral on a ${board.system} board (a floating star needs three phases)`, spec.starPoint)];
+    return [inputIssue('not_applicable', 'starPoint', `neutral on a ${board.system} board (a floating ${star} needs three phases)`, spec.starPoint)];
   return [];
 }
 

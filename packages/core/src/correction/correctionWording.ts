@@ -7,6 +7,8 @@ import type { PowerFactorSense } from '../analysis/boardResult.js';
 import type { Arrangement, TargetDefinition } from './correctionSpec.js';
 import type { BuildVerdict, SmallBranch, SparedBranch, TargetName } from './correctionResult.js';
 import { argumentIssueError } from '../_internal/argumentChecks.js';
+import { starWordOf, type StarWord } from '../board/conventions/regionWords.js';
+import type { Region } from '../board/conventions/region.js';
 
 interface TargetWords {
   readonly definition: TargetDefinition;
@@ -160,8 +162,8 @@ export const warningText = {
     `${branches.join(', ')}: no build fits in ${outputs} controller output${outputs === 1 ? '' : 's'}; steps were merged beyond what the controller allows`,
   stepBelowMinimum: (branches: readonly PhaseLabel[], minKvar: number) =>
     `${branches.join(', ')}: no build keeps every switched step at or above ${f1(minKvar)} kvar; the closest build is used`,
-  starPointShift: (shiftV: number, percent: number, lowV: number, highV: number) =>
-    `the floating star point of the bank sits ${f1(shiftV)} V (${percent.toFixed(0)} % of line-to-neutral) from the centroid of the line voltages, so its elements see ${f1(lowV)}–${f1(highV)} V: a star bank with unequal branches on a board without a neutral works against itself; consider a delta bank`,
+  starPointShift: (shiftV: number, percent: number, lowV: number, highV: number, star: StarWord = 'star') =>
+    `the floating ${star} point of the bank sits ${f1(shiftV)} V (${percent.toFixed(0)} % of line-to-neutral) from the centroid of the line voltages, so its elements see ${f1(lowV)}–${f1(highV)} V: a ${star} bank with unequal branches on a board without a neutral works against itself; consider a delta bank`,
   reactorsNeeded: (branches: readonly PhaseLabel[], capacitorShortfalls: readonly string[]) =>
     `with capacitors alone ${capacitorShortfalls.join('; ') || 'the target is not met'}: the recommended compensator includes reactors on ${branches.join(', ')} (Steinmetz/Gyugyi); set compensator.reactors: none for capacitors only`,
   reactorsNotSelected: 'reactors are given as continuous values only (kvar, mH); choosing reactor hardware is not part of this study',
@@ -262,7 +264,16 @@ export const selectionWording = {
    * @param ratings the catalogue's ratings, each with its frequency factor f/f_r (a 60 Hz unit on a 50 Hz
    *   board gives 5/6 of its output), which the delivery rule counts as well as (V/V_r)²
    */
-  noUnit: (branches: readonly PhaseLabel[], neededV: number, nominalV: number, floating: boolean, catalogue: string, floorPercent: number, units: readonly { readonly ratedV: number; readonly hzFactor: number }[]) => {
+  noUnit: (
+    branches: readonly PhaseLabel[],
+    neededV: number,
+    nominalV: number,
+    floating: boolean,
+    catalogue: string,
+    floorPercent: number,
+    units: readonly { readonly ratedV: number; readonly hzFactor: number }[],
+    star: StarWord = 'star',
+  ) => {
     const ratings = [...new Set(units.map((u) => u.ratedV))].sort((a, b) => a - b);
     // The way out the user controls: the lowest rating the voltage rule allows, and the floor that would take it.
     const nearest = ratings.find((v) => v >= neededV);
@@ -276,7 +287,7 @@ export const selectionWording = {
         : nearest !== undefined && Math.floor(delivers) >= 1
         ? `; the nearest, ${nearest} V, delivers ${delivers.toFixed(1)} % there${frequencyWords} (a deliveryFloorPercent of ${Math.floor(delivers)} in the correction accepts it), or give a catalogue with units rated ${f1(neededV)}–${f1(highestV)} V`
         : `; give a catalogue with units rated ${f1(neededV)}–${f1(highestV)} V`;
-    return `no unit in the ${catalogue} fits ${branches.join(', ')}: a unit there must be rated at least ${f1(neededV)} V and still deliver ${floorPercent.toFixed(0)} % of its nameplate at ${floating ? `the ${f1(nominalV)} V across it as solved (the star point floats)` : `the nominal ${f1(nominalV)} V across it`}${hzFactor === 1 ? '' : `, its output scaled by ${f3(hzFactor)} for running at the board's frequency instead of its rated one`}, i.e. be rated at most ${f1(highestV)} V; the catalogue has ${ratings.map((v) => `${v}`).join(', ')} V${remedy}`;
+    return `no unit in the ${catalogue} fits ${branches.join(', ')}: a unit there must be rated at least ${f1(neededV)} V and still deliver ${floorPercent.toFixed(0)} % of its nameplate at ${floating ? `the ${f1(nominalV)} V across it as solved (the ${star} point floats)` : `the nominal ${f1(nominalV)} V across it`}${hzFactor === 1 ? '' : `, its output scaled by ${f3(hzFactor)} for running at the board's frequency instead of its rated one`}, i.e. be rated at most ${f1(highestV)} V; the catalogue has ${ratings.map((v) => `${v}`).join(', ')} V${remedy}`;
   },
   costStatement: (unitCostKvar: number) =>
     `least cost = nameplate kvar + ${unitCostKvar} kvar-equivalent per unit bought, among the builds that best fit the tolerance window, the controller outputs and the minimum step`,
@@ -303,7 +314,11 @@ export const reportSummary = {
     `${what}: the target cannot be met with capacitors in this arrangement; the best reachable build is ${bankWords(delivered, nameplate)}`,
 };
 
-const THREE_PHASE_NAMES: Readonly<Record<Arrangement, string>> = { 'star-bank': 'star bank', 'delta-bank': 'delta bank', 'balancing-compensator': 'balancing compensator' };
+/** A three-phase board's names: the star bank in the region's word (a wye bank in North America). */
+const THREE_PHASE_NAMES: Readonly<Record<StarWord, Readonly<Record<Arrangement, string>>>> = {
+  star: { 'star-bank': 'star bank', 'delta-bank': 'delta bank', 'balancing-compensator': 'balancing compensator' },
+  wye: { 'star-bank': 'wye bank', 'delta-bank': 'delta bank', 'balancing-compensator': 'balancing compensator' },
+};
 /**
  * Star and delta need three phases: on a split-phase or single-phase board the same equipment is
  * capacitors from a line to the neutral, and across the two lines. Only the words change; the
@@ -318,15 +333,15 @@ const TWO_LINE_NAMES: Readonly<Record<Arrangement, string>> = { 'star-bank': 'li
 const SINGLE_PHASE_NAMES: Readonly<Record<Arrangement, string>> = { ...TWO_LINE_NAMES, 'star-bank': 'capacitor bank' };
 const threePhase = (system: string): boolean => system === 'three-phase-4wire' || system === 'three-phase-3wire';
 
-/** What each arrangement is called in sentences and tables on a board of this system. */
-export const arrangementNames = (system: string): Readonly<Record<Arrangement, string>> =>
-  threePhase(system) ? THREE_PHASE_NAMES : system === 'single-phase' ? SINGLE_PHASE_NAMES : TWO_LINE_NAMES;
+/** What each arrangement is called in sentences and tables on a board of this system, in its region's words (conventions.region). */
+export const arrangementNames = (system: string, region: Region): Readonly<Record<Arrangement, string>> =>
+  threePhase(system) ? THREE_PHASE_NAMES[starWordOf(region)] : system === 'single-phase' ? SINGLE_PHASE_NAMES : TWO_LINE_NAMES;
 
-/** Each arrangement said in full, for a report's heading line, on a board of this system. */
-export const arrangementDescriptions = (system: string): Readonly<Record<Arrangement, string>> =>
+/** Each arrangement said in full, for a report's heading line, on a board of this system, in its region's words. */
+export const arrangementDescriptions = (system: string, region: Region): Readonly<Record<Arrangement, string>> =>
   threePhase(system)
     ? {
-        'star-bank': 'star-connected capacitor bank (one capacitor per phase)',
+        'star-bank': `${starWordOf(region)}-connected capacitor bank (one capacitor per phase)`,
         'delta-bank': 'delta-connected capacitor bank (one capacitor per line pair)',
         'balancing-compensator': 'balancing compensator (Steinmetz/Gyugyi reactive branches)',
       }

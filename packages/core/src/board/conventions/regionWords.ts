@@ -15,6 +15,8 @@ export interface RegionWords {
   readonly neutralConductor: string;
   /** What the phases of the board are called in a sentence: "phases", or the "legs" of a split-phase service. */
   readonly phasesWord: string;
+  /** A star connection (a bank's, a load's) and its common point: "star" (IEC 60050), "wye" (NEC). Only words: file values stay `star-bank`, `ABC-star`. */
+  readonly starWord: StarWord;
   /** Where a discharged capacitor's terminals are shorted to: "earth" (IEC), "ground" (NEC). */
   readonly groundWord: 'earth' | 'ground';
   /** Cautions shown with a broken-neutral study. */
@@ -31,6 +33,11 @@ const northAmericanCautions = (legs: string): readonly string[] => [
   'Never switch, fuse or open the grounded conductor (neutral) on its own (NEC 240.22, from memory); inspect neutral terminations at the service, the meter base and the transformer regularly.',
 ];
 
+export type StarWord = 'star' | 'wye';
+
+/** The region's word for a star connection, where nothing else of the region's wording is needed. */
+export const starWordOf = (region: Region): StarWord => regionWords(region, 'three-phase-4wire').starWord;
+
 export function regionWords(region: Region, system: SystemKind): RegionWords {
   const split = system === 'split-phase';
   if (region === 'north-america')
@@ -38,8 +45,9 @@ export function regionWords(region: Region, system: SystemKind): RegionWords {
       sourceNeutralPoint: split ? 'the transformer center tap' : 'the source wye point',
       neutralConductor: 'grounded conductor (neutral)',
       phasesWord: split ? 'leg' : 'phases',
+      starWord: 'wye',
       groundWord: 'ground',
       openNeutralCautions: northAmericanCautions(split ? 'leg' : 'phases'),
     };
-  return { sourceNeutralPoint: 'the source star point', neutralConductor: 'neutral', phasesWord: 'phases', groundWord: 'earth', openNeutralCautions: IEC_OPEN_NEUTRAL_CAUTIONS };
+  return { sourceNeutralPoint: 'the source star point', neutralConductor: 'neutral', phasesWord: 'phases', starWord: 'star', groundWord: 'earth', openNeutralCautions: IEC_OPEN_NEUTRAL_CAUTIONS };
 }
