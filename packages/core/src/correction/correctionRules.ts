@@ -4,7 +4,7 @@
  * user sees them all at once.
  */
 import type { Board } from '../board/boardModel.js';
-import { inputIssue, type InputIssue } from '../errors.js';
+import { inputIssue, type InputIssue, quoteText } from '../errors.js';
 import type { CorrectionSpec } from './correctionSpec.js';
 import { CORRECTION_DEFAULTS } from './correctionDefaults.js';
 import { meteringPointIssues } from './meteringPoint.js';
@@ -123,7 +123,7 @@ function ruleMeasuredAt(spec: CorrectionSpec, board: Board): InputIssue[] {
   const point = spec.target?.measuredAt;
   const issues = meteringPointIssues(board, point);
   if (issues.length || point === undefined || point === board.name || spec.arrangement !== 'balancing-compensator') return issues;
-  return [inputIssue('not_applicable', 'target.measuredAt', `the compensator's own board "${board.name}": a balancing compensator balances and corrects where it is installed`, point)];
+  return [inputIssue('not_applicable', 'target.measuredAt', `the compensator's own board ${quoteText(board.name)}: a balancing compensator balances and corrects where it is installed`, point)];
 }
 
 export const CORRECTION_RULES: readonly Rule[] = [

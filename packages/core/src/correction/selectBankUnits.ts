@@ -35,6 +35,7 @@ import { starWordOf } from '../board/conventions/regionWords.js';
 import { firstFit, searchSet, shortOfTarget, type Need, type SetBuild, type UnitChoice } from './_internal/bankSearch.js';
 import { defaultPractice } from './capacitorDischarge.js';
 import { controllerSettings, resolveCurrentTransformer, responseThresholdA } from './controllerSettings.js';
+import { checkObjectArgument } from '../_internal/argumentChecks.js';
 
 export interface SelectBankUnitsOptions {
   /** Regional practice: typical catalogue, voltage margin, discharge time. @defaultValue 'north-american' at 60 Hz, 'iec' at 50 Hz */
@@ -130,6 +131,7 @@ const elementF = (u: CatalogueUnit) => ((u.kind === 'three-phase' ? u.ratedKvar 
  * selection.controller?.responseThresholdA    //=> C/k of the smallest step, A
  */
 export function selectBankUnits(sized: SizedEquipment, options?: SelectBankUnitsOptions): BankSelection {
+  checkObjectArgument(sized, 'sized', 'a sizing from sizeStarBank, sizeDeltaBank or sizeBalancingCompensator', ['frequencyHz', 'branches', 'equipment']);
   const opts = parseOptions(selectOptionsSchema, options, 'selectBankUnits options');
   const practice = opts.practice ?? defaultPractice(sized.frequencyHz);
   const typical = opts.catalogue === undefined;

@@ -6,7 +6,9 @@
  * star, grounding and bonding. Every region-specific sentence of a board report is here.
  */
 import type { SystemKind } from '../boardSchema.js';
-import type { Region } from './region.js';
+import { REGIONS, type Region } from './region.js';
+import { checkWordArgument } from '../../_internal/argumentChecks.js';
+import { SYSTEMS } from '../boardRanges.js';
 
 export interface RegionWords {
   /** The point the source's phase voltages are measured from: "the source star point", "the transformer center tap". */
@@ -39,6 +41,8 @@ export type StarWord = 'star' | 'wye';
 export const starWordOf = (region: Region): StarWord => regionWords(region, 'three-phase-4wire').starWord;
 
 export function regionWords(region: Region, system: SystemKind): RegionWords {
+  checkWordArgument(region, 'region', REGIONS);
+  checkWordArgument(system, 'system', SYSTEMS);
   const split = system === 'split-phase';
   if (region === 'north-america')
     return {

@@ -4,6 +4,7 @@ import { labellerOf } from '../../board/conventions/phaseNames.js';
 import type { ReportBlock, ReportSection } from './reportDocument.js';
 import type { StandardReference } from './reportWording.js';
 import { dutyBlocks, harmonicCurrentTable, harmonicVoltageTable, neutralBlocks, scanBlocks, spectraList, tddTable } from './harmonicsBlocks.js';
+import { checkObjectArgument } from '../../_internal/argumentChecks.js';
 
 export const HARMONICS_STANDARDS: readonly StandardReference[] = [
   { name: 'IEEE Std 519-2014', use: 'current distortion limits at the point of common coupling (TDD and individual orders); bus voltage distortion limits' },
@@ -11,6 +12,7 @@ export const HARMONICS_STANDARDS: readonly StandardReference[] = [
 ];
 
 export function harmonicsSection(h: HarmonicsReport): ReportSection {
+  checkObjectArgument(h, 'h', 'a harmonics report from studyHarmonics(...) or analyseHarmonics(...)', ['phaseNames', 'orders', 'lines']);
   // Phases and branches as the board file names them (L1 or A).
   const label = labellerOf(h.phaseNames);
   const blocks: ReportBlock[] = [
