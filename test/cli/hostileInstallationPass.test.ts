@@ -29,7 +29,7 @@ describe('control characters in board names', () => {
       noStack(r.stderr);
       expect(r.code).toBe(3);
       expect(r.stderr).not.toMatch(CONTROL);
-      expect(r.stderr).toMatch(/^ {2}- boards\[1\]\.name: expected text without control characters .* \(received "Plant\\u0007room\\u\{202E\}\\u0000x"\)$/m);
+      expect(r.stderr).toMatch(/^ {2}- boards\[1\]\.name: expected text without control characters .* \(received "Plant\\u0007room\\u202e\\u0000x"\)$/m);
       expect(r.stderr).toMatch(/^ {2}- boards\[1\]\.loads\[0\]\.name: expected text without control characters/m);
     }
   });

@@ -127,7 +127,8 @@ describe('trivar report', () => {
     const section = readFileSync(out, 'utf8').split('<section id="correction">')[1]!.split('</section>')[0]!;
     type Outcome = { arrangement: string; report: { status: string; selection: { deliveredKvar: number } | null } | null };
     const compared = JSON.parse(runTrivar(['correct', 'examples/cedar-falls-print-shop.yaml', '--json']).stdout) as { recommended: string; outcomes: Outcome[] };
-    const names: Record<string, string> = { 'star-bank': 'Star bank', 'delta-bank': 'Delta bank', 'balancing-compensator': 'Balancing compensator' };
+    // A 277/480 V board: its star bank is a wye bank, as North-American reports name it.
+    const names: Record<string, string> = { 'star-bank': 'Wye bank', 'delta-bank': 'Delta bank', 'balancing-compensator': 'Balancing compensator' };
     for (const o of compared.outcomes) expect(section).toContain(`<td>${names[o.arrangement]}</td>`);
     const chosen = compared.outcomes.find((o) => o.arrangement === compared.recommended)!.report!;
     expect(section).toContain(`Recommended — ${names[compared.recommended]!.toLowerCase()}:`);

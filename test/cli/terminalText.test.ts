@@ -35,7 +35,9 @@ describe('control characters in names', () => {
     const r = runTrivar(['solve', '-'], bad);
     expect(r.code).toBe(3);
     expect(r.stderr).not.toMatch(CONTROL);
-    expect(r.stderr).toContain('\\e[2Jx');
+    // The library's message escapes the key itself (JSON-style), in the path and the value received.
+    expect(r.stderr).toContain('  - \\u001b[2Jx: expected one of the keys taken here');
+    expect(r.stderr).toContain('(received "\\u001b[2Jx")');
   });
   it('forTerminal hands clean data back as it is and copies it with every kind of control character escaped', () => {
     const clean = { name: 'C:\\new "quoted" Café', loads: [{ name: 'a\\tb', kW: 1 }], lone: '\ud800' };

@@ -40,10 +40,10 @@ describe('harmonics on a board without a neutral', () => {
     for (const w of r.warnings.filter((x) => x.code.startsWith('voltage-'))) expect(w.message).not.toMatch(/-N /);
   });
 
-  it('names the open delta without a star point, and gives no neutral caution', () => {
+  it('names the open delta without a wye point (a North-American board), and gives no neutral caution', () => {
     const source = r.assumptions.find((a) => a.includes('open delta'));
-    expect(source).toMatch(/^the source an open delta as the file gives it: two windings meeting at line C, .*no star point or neutral/);
-    expect(r.assumptions.join('\n')).not.toMatch(/wye point|star point (earthed|grounded)/);
+    expect(source).toMatch(/^the source an open delta as the file gives it: two windings meeting at line C, .*no wye point or neutral/);
+    expect(r.assumptions.join('\n')).not.toMatch(/star point|wye point (earthed|grounded)/);
     expect(r.cautions.some((c) => NEUTRAL_CAUTION.test(c))).toBe(false);
   });
 

@@ -17,6 +17,29 @@ export interface InputIssue {
   readonly message: string;
 }
 
+// C0 controls (tab and newline too: inside a name they break a message's line), DEL, C1 controls, line and
+// paragraph separators and the bidirectional overrides: in a terminal or a log they can recolour, clear or
+// reorder what follows, so user text never reaches a message with them raw.
+const CONTROL = /[\u0000-\u001f\u007f-\u009f\u2028\u2029\u202a-\u202e\u2066-\u2069]/g;
+const HAS_CONTROL = new RegExp(CONTROL.source);
+const NAMED_ESCAPES: Readonly<Record<string, string>> = { '\n': '\\n', '\r': '\\r', '\t': '\\t', '\b': '\\b', '\f': '\\f' };
+
+/** User text with every control character written as its JSON-style escape: "a\u001b[31m" → "a\\u001b[31m". */
+export function escapeControls(text: string): string {
+  return text.replace(CONTROL, (c) => NAMED_ESCAPES[c] ?? `\\u${c.charCodeAt(0).toString(16).padStart(4, '0')}`);
+}
+
+/**
+ * User text (a load's or board's name, a header, a value) quoted for a message, JSON-style: in double
+ * quotes, a quote or backslash inside escaped, and every control character as an escape, so a name
+ * reads as written and never acts on the screen. Every message that quotes user text goes through here.
+ * @example quoteText('Mixer') //=> '"Mixer"'
+ * @example quoteText('x\ny') //=> '"x\\ny"'
+ */
+export function quoteText(text: string): string {
+  return `"${escapeControls(String(text).replace(/["\\]/g, '\\$&'))}"`;
+}
+
 /** Bad input: carries every problem found in one pass. */
 export class InputError extends Error {
   override readonly name = 'InputError';
@@ -24,9 +47,12 @@ export class InputError extends Error {
   /** What the issues are about, e.g. "the board is not valid". */
   readonly heading: string;
   constructor(issues: readonly InputIssue[], heading = 'the board is not valid') {
-    super(`${heading}:\n${issues.map((i) => `  - ${i.message}`).join('\n')}`);
-    this.issues = issues;
-    this.heading = heading;
+    // The last guard: a name a message did not quote through quoteText still reaches nobody raw.
+    const shown = issues.map((i) => (HAS_CONTROL.test(i.message) || HAS_CONTROL.test(i.expected) ? { ...i, message: escapeControls(i.message), expected: escapeControls(i.expected) } : i));
+    const title = escapeControls(heading);
+    super(`${title}:\n${shown.map((i) => `  - ${i.message}`).join('\n')}`);
+    this.issues = shown;
+    this.heading = title;
   }
 }
 
@@ -36,7 +62,7 @@ export class NumericalError extends Error {
   /** `collapsed`: solved, but at a point the supply cannot hold (see analysis/viableOperatingPoint.ts). */
   readonly reason: 'singular' | 'no-convergence' | 'non-finite' | 'collapsed';
   constructor(reason: NumericalError['reason'], message: string) {
-    super(message);
+    super(escapeControls(message));
     this.reason = reason;
   }
 }
@@ -49,6 +75,7 @@ export function formatPath(path: readonly PropertyKey[]): string {
   let out = '';
   for (const key of path) {
     // Keys come from the schema except unknown ones, which are user text of any length: shortened.
+    // The path stays exact (it is data); the sentences built on it escape it (inputIssue).
     const text = typeof key === 'string' && key.length > 40 ? `${key.slice(0, 37)}...` : String(key);
     if (typeof key === 'number') out += `[${key}]`;
     else out += out === '' ? text : `.${text}`;
@@ -60,7 +87,7 @@ export function formatPath(path: readonly PropertyKey[]): string {
 export function describeValue(value: unknown): string {
   if (value === undefined) return 'nothing';
   if (typeof value === 'number') return Number.isNaN(value) ? 'NaN' : String(value);
-  if (typeof value === 'string') return JSON.stringify(value.length > 40 ? `${value.slice(0, 37)}...` : value);
+  if (typeof value === 'string') return quoteText(value.length > 40 ? `${value.slice(0, 37)}...` : value);
   if (Array.isArray(value)) return `a list of ${value.length}`;
   if (value === null) return 'null';
   if (typeof value === 'object') return 'an object';
@@ -69,7 +96,7 @@ export function describeValue(value: unknown): string {
 
 /** Builds an issue with its sentence: "loads[3].pf: must be ... (received 1.2)". */
 export function inputIssue(code: string, path: string, expected: string, received?: unknown): InputIssue {
-  const where = path === '' ? 'board' : path;
+  const where = path === '' ? 'board' : escapeControls(path);
   const got = received === undefined && code === 'missing' ? '' : ` (received ${describeValue(received)})`;
   const base = { code, path, expected, message: `${where}: expected ${expected}${got}` };
   return received === undefined ? base : { ...base, received: describeValue(received) };

@@ -5,11 +5,47 @@
 
 // Complex values and phasors
 export type { ComplexValue, Phasor } from './complex.js';
-export { toPhasor, polar, degToRad, radToDeg } from './complex.js';
+// The helpers the studies call unchecked in their loops, exported with an entry check (see checkedHelpers.ts).
+export {
+  analyseSolution,
+  bandDecimalsOf,
+  busFigureTexts,
+  idealSourceHolds,
+  lowestInstallationVoltageChange,
+  lowestVoltageChange,
+  lowestVoltagePercentText,
+  percentAgainstLevel,
+  voltageBasisWords,
+  worstBranch,
+  branchAdmittanceAtOrder,
+  capacitorVoltage,
+  conventionsOf,
+  degToRad,
+  detunedOutputKvar,
+  detunedSusceptance,
+  deviationFromAveragePercent,
+  dutyFigures,
+  edgePowersAt,
+  effectiveQuantities,
+  formatPath,
+  impedanceAtOrder,
+  judgedNominalOf,
+  labelIn,
+  polar,
+  powerReading,
+  radToDeg,
+  solveBatch,
+  solveCompiledBoard,
+  solveCompiledInstallation,
+  stepCombinations,
+  terminalVoltage,
+  toPhasor,
+  tuningOrder,
+} from './checkedHelpers.js';
 
 // Errors
 export type { InputIssue } from './errors.js';
-export { InputError, NumericalError, formatPath } from './errors.js';
+export { InputError, NumericalError } from './errors.js';
 export { collapseError, assertViableBoard } from './analysis/viableOperatingPoint.js';
 
 // Board files (the whole file with the studies' sections is composed in boardFile/)
@@ -49,7 +85,7 @@ export type { ConductorMaterial, ConductorSize, ConductorResistance, ConductorRe
 export { conductorReactance, conductorResistance, DEFAULT_CABLE_REACTANCE_OHM_PER_KM, DEFAULT_CONDUCTOR_TEMPERATURE_C } from './board/cableLibrary.js';
 export { installationOf, boardOfInstallation, withoutBankOn } from './network/installationModel.js';
 export type { InstallationSolution, CompiledInstallation } from './network/solveNetwork.js';
-export { compileInstallation, solveCompiledInstallation, solveInstallationNetwork } from './network/solveNetwork.js';
+export { compileInstallation, solveInstallationNetwork } from './network/solveNetwork.js';
 export type * from './analysis/installationResult.js';
 export type { SolveInstallationOptions } from './analysis/solveInstallationModel.js';
 export { solveInstallationModel } from './analysis/solveInstallationModel.js';
@@ -57,9 +93,9 @@ export { solveInstallation } from './boardFile/solveInstallation.js';
 
 // Solving
 export type { SolveOptions, NetworkSolution, BranchState } from './network/solveNetwork.js';
-export { solveNetwork, terminalVoltage } from './network/solveNetwork.js';
+export { solveNetwork } from './network/solveNetwork.js';
 export type { CompiledBoard } from './network/solveNetwork.js';
-export { compileBoard, solveCompiledBoard } from './network/solveNetwork.js';
+export { compileBoard } from './network/solveNetwork.js';
 export type { CompiledNetwork } from './network/compiledNetwork.js';
 export type { SolveBoardOptions } from './analysis/solveBoardModel.js';
 export { solveBoardModel } from './analysis/solveBoardModel.js';
@@ -67,14 +103,11 @@ export { solveBoard } from './boardFile/solveBoard.js';
 
 // Analysis
 export type * from './analysis/boardResult.js';
-export { worstBranch } from './analysis/readLoads.js';
 export type { SequenceSet } from './analysis/symmetricalComponents.js';
 export { sequenceComponents } from './analysis/symmetricalComponents.js';
-export { deviationFromAveragePercent, unbalanceFactorFromLineMagnitudes, motorDeratingFactor } from './analysis/unbalanceIndices.js';
+export { unbalanceFactorFromLineMagnitudes, motorDeratingFactor } from './analysis/unbalanceIndices.js';
 export type { BoardPowerDefinitions, ApparentPowerReading } from './analysis/powerDefinitions.js';
-export { boardPowerDefinitions, effectiveQuantities } from './analysis/powerDefinitions.js';
-export { analyseSolution } from './analysis/analyseSolution.js';
-export { powerReading } from './analysis/powerReading.js';
+export { boardPowerDefinitions } from './analysis/powerDefinitions.js';
 export { studyOpenNeutral } from './analysis/studyOpenNeutral.js';
 export { OPEN_NEUTRAL_LIMITS, OPEN_NEUTRAL_METHOD } from './analysis/openNeutralWording.js';
 export type { NeutralBreakPath, FollowNeutralBreakOptions } from './analysis/followNeutralBreak.js';
@@ -134,7 +167,6 @@ export type { InstallationCorrection, InstallationComparison, CorrectInstallatio
 export { correctInstallation, compareInstallationCorrections, installationBoardIndex } from './correction/correctInstallation.js';
 export type { InstallationEffect, BoardEffect, IncomerLineEffect, OtherBoardWarning, SupplyEffect } from './correction/installationEffect.js';
 export { installationEffect } from './correction/installationEffect.js';
-export { lowestVoltageChange, lowestInstallationVoltageChange } from './render/report/installationCorrectionSection.js';
 export { ORIGIN_POINT, meteringPoints, meteringPointIssues } from './correction/meteringPoint.js';
 export type * from './correction/correctionResult.js';
 export { arrangementDescriptions, arrangementNames, BUILD_VERDICT_WORDS, CORRECTION_CAUTIONS, meteringPointWords, reactorChanges, smallBranchWords, sparedBranchesWords } from './correction/correctionWording.js';
@@ -146,10 +178,10 @@ export { PROFILE_DEFAULTS } from './profile/profileDefaults.js';
 export { contactorLifeWords } from './profile/profileWording.js';
 export { billingPowerFactor, billingPowerFactorText } from './profile/billingPowerFactor.js';
 export type { BatchNetwork, BatchEdge, DriverSpec, DriverColumns } from './profile/batchNetwork.js';
-export { compileBatchNetwork, edgePowersAt } from './profile/batchNetwork.js';
+export { compileBatchNetwork } from './profile/batchNetwork.js';
 export type { BatchKernel, IntervalState, KernelOptions } from './profile/batchKernel.js';
 export type { IntervalFigures, BatchSolveOptions } from './profile/solveBatch.js';
-export { allocateFigures, createBatchKernel, solveBatch } from './profile/solveBatch.js';
+export { allocateFigures, createBatchKernel } from './profile/solveBatch.js';
 export type { ColumnPlan, ColumnTarget, ColumnPlanOptions, Quantity } from './profile/columnPlan.js';
 export { planColumns, planDrivers, driverColumns } from './profile/columnPlan.js';
 export type { RawIntervals, RowReader, RowReaderOptions } from './profile/readIntervalRows.js';
@@ -181,7 +213,7 @@ export type { SpectrumKind, TypicalSpectrum } from './harmonics/typicalSpectra.j
 export { TYPICAL_SPECTRA, SPECTRUM_KINDS } from './harmonics/typicalSpectra.js';
 export type { HarmonicModel, LoadBehaviour, OrderContent, BankModel } from './harmonics/harmonicModel.js';
 export { resolveHarmonicModel, addInstalledBank, ordersPresent, stateKey } from './harmonics/harmonicModel.js';
-export { solveAtOrder, impedanceAtOrder, branchAdmittanceAtOrder } from './harmonics/networkAtOrder.js';
+export { solveAtOrder } from './harmonics/networkAtOrder.js';
 export type { OrderSolution } from './harmonics/readHarmonics.js';
 export type { HarmonicsOptions } from './harmonics/studyHarmonics.js';
 export { studyBoardHarmonics, analyseHarmonics, solveHarmonicOrders, withSteps } from './harmonics/studyHarmonics.js';
@@ -202,13 +234,13 @@ export { solveFixedInstallation } from './network/solveFixedInstallation.js';
 export type { ScanEvaluator, ScanEvaluatorOptions, ScanBank, BankState } from './harmonics/scanEvaluator.js';
 export type { JointScanOptions, NetworkState } from './harmonics/scanJointResonance.js';
 export { scanJointResonance, scanNetworkStates, controllerLevels, switchingLevels } from './harmonics/scanJointResonance.js';
-export { scanResonance, createScanEvaluator, scanGrid, stepCombinations, roundForPlot, shortCircuitVA } from './harmonics/scanResonance.js';
-export { DUTY_LIMITS, dutyFigures } from './harmonics/capacitorDuty.js';
+export { scanResonance, createScanEvaluator, scanGrid, roundForPlot, shortCircuitVA } from './harmonics/scanResonance.js';
+export { DUTY_LIMITS } from './harmonics/capacitorDuty.js';
 export { dutyConditions, withCapacitanceFactor, withLoadsOff, withOtherBanksOff, conditionWords } from './harmonics/dutyConditions.js';
-export { tuningOrder, capacitorVoltage, detunedOutputKvar, detunedSusceptance, DETUNING_FACTORS_PERCENT } from './harmonics/detuning.js';
+export { DETUNING_FACTORS_PERCENT } from './harmonics/detuning.js';
 export { ieee519OrderLimit, ieee519Row } from './harmonics/ieee519.js';
 export { HARMONICS_DEFAULTS } from './harmonics/harmonicsDefaults.js';
-export { HARMONICS_CAUTIONS, jointCoverageWords, nearestWords, voltageBasisWords, percentAgainstLevel, busFigureTexts } from './harmonics/harmonicsWording.js';
+export { HARMONICS_CAUTIONS, jointCoverageWords, nearestWords } from './harmonics/harmonicsWording.js';
 export type { VoltageDistortionBasis, VoltageDistortionLimits } from './harmonics/voltageDistortionLimits.js';
 export { VOLTAGE_DISTORTION_BASES, VOLTAGE_DISTORTION_LIMITS, regionVoltageDistortionBasis } from './harmonics/voltageDistortionLimits.js';
 export type { FixedNetworkInput, FixedSolveOptions } from './network/solveFixedNetwork.js';
@@ -263,7 +295,7 @@ export type { MarkdownReport } from './render/report/renderReportMarkdown.js';
 export { renderReportMarkdown } from './render/report/renderReportMarkdown.js';
 export type { ProfileChart } from './render/report/profileSection.js';
 export { profileSection, installationProfileSections } from './render/report/profileSection.js';
-export { boardSectionIds, lowestVoltagePercentText } from './render/report/installationSections.js';
+export { boardSectionIds } from './render/report/installationSections.js';
 export { harmonicsSection } from './render/report/harmonicsSection.js';
 export { installationHarmonicsSections } from './render/report/installationHarmonicsSections.js';
 
@@ -282,7 +314,7 @@ export type { BankDesign, SwitchingFromBank } from './profile/switchingFromBank.
 export { switchingFromBank } from './profile/switchingFromBank.js';
 // Regional conventions: phase names, voltage notation, voltage limits, region wording.
 export type { PhaseNaming, PhaseLabel, PhaseLabeller } from './board/conventions/phaseNames.js';
-export { PHASE_NAMINGS, labelIn, labellerOf, phaseLabels } from './board/conventions/phaseNames.js';
+export { PHASE_NAMINGS, labellerOf, phaseLabels } from './board/conventions/phaseNames.js';
 export type { VoltageNotation, NotationReading } from './board/conventions/voltageNotation.js';
 export { readVoltageNotation, writeVoltageNotation, NOTATION_RATIO_TOLERANCE } from './board/conventions/voltageNotation.js';
 export type { VoltageLimits, VoltageLimitPreset, VoltageLimitPresetName } from './board/conventions/voltageLimits.js';
@@ -291,13 +323,12 @@ export type { BandSide, VoltageShown } from './board/conventions/voltageBesideBa
 export { voltageBesideBand, percentBesideBand, percentBesideEdges } from './board/conventions/voltageBesideBand.js';
 export type { VoltageUnbalanceLimit } from './board/conventions/unbalanceLimits.js';
 export { VOLTAGE_UNBALANCE_LIMITS, unbalanceFigure } from './board/conventions/unbalanceLimits.js';
-export { judgedNominals, bandDecimalsOf } from './analysis/voltageCheck.js';
-export { judgedNominalOf, STANDARD_STAR_PAIRS } from './board/nominalVoltages.js';
-export { idealSourceHolds, nominalVoltageWords, nonStandardNominalNote, sourceHeldLine, sourceVoltageWords } from './render/nominalVoltageWords.js';
+export { judgedNominals } from './analysis/voltageCheck.js';
+export { STANDARD_STAR_PAIRS } from './board/nominalVoltages.js';
+export { nominalVoltageWords, nonStandardNominalNote, sourceHeldLine, sourceVoltageWords } from './render/nominalVoltageWords.js';
 export type { Region, RegionBasis } from './board/conventions/region.js';
 export { inferRegion } from './board/conventions/region.js';
 export type { BoardConventions } from './board/conventions/boardConventions.js';
-export { conventionsOf } from './board/conventions/boardConventions.js';
 export type { VoltageCheck, VoltageExtreme } from './analysis/voltageCheck.js';
-export type { RegionWords } from './board/conventions/regionWords.js';
-export { regionWords } from './board/conventions/regionWords.js';
+export type { RegionWords, StarWord } from './board/conventions/regionWords.js';
+export { regionWords, starWordOf } from './board/conventions/regionWords.js';

@@ -22,13 +22,13 @@ import type { CorrectOutcome } from './correct.js';
 import { writeResult } from '../writeResult.js';
 import { renderCorrectionReport } from '../format/correctionReport.js';
 import { renderComparisonHarmonics, renderCorrectionHarmonics } from '../format/correctionHarmonicsReport.js';
-import { comparedSystem, renderComparisonReport, tableNames } from '../format/comparisonReport.js';
+import { comparedBoard, renderComparisonReport, tableNames } from '../format/comparisonReport.js';
 import { renderInstallationComparisonWithHarmonics, renderInstallationCorrectionWithHarmonics } from '../format/installationCorrectionReport.js';
 
 /** Every arrangement compared, each with its harmonic check; writes the result. */
 export function writeComparisonWithHarmonics(spec: BoardSpec, board: Board, study: Record<string, unknown>, json: boolean | undefined, io: CliIo): HarmonicComparison {
   const comparison = compareWithHarmonics(spec, board, study);
-  writeResult(io, comparison, json, (c: HarmonicComparison) => renderComparisonReport(c) + renderComparisonHarmonics(c.harmonics, tableNames(comparedSystem(c))));
+  writeResult(io, comparison, json, (c: HarmonicComparison) => renderComparisonReport(c) + renderComparisonHarmonics(c.harmonics, tableNames(comparedBoard(c))));
   return comparison;
 }
 

@@ -84,7 +84,7 @@ const needsStudy = (view: DiagramView) =>
 function assertDrawable(study: FileCorrection, option: string): void {
   const r = study.report;
   if (r.status !== 'no-suitable-units') return;
-  const name = study.recommended ?? arrangementNames(r.verification.before.board.system)[r.arrangement];
+  const name = study.recommended ?? arrangementNames(r.verification.before.board.system, r.verification.before.conventions.region)[r.arrangement];
   throw new UsageError(
     `${option}: no unit of the catalogue suits the ${name}${r.selection?.unbuildable ? ` (${r.selection.unbuildable.message})` : ''}, so there is no correction as built to draw (trivar correct shows the sizing); give a catalogue (correction.catalogue) or name another arrangement (correction.arrangement)`,
   );

@@ -13,6 +13,7 @@ import {
   type BoardSpec,
   compareCorrections,
   compareInstallationCorrections,
+  conventionsOf,
   correctBoard,
   correctInstallation,
   labellerOf,
@@ -21,6 +22,7 @@ import {
   type CorrectionComparison,
   type CorrectionReport,
   type Installation,
+  type Region,
   type InstallationEffect,
   type SwitchingFromBank,
 } from '@trivar/core';
@@ -40,8 +42,8 @@ export interface InstallationFileCorrection extends FileCorrection {
 }
 
 /** Every arrangement was "not applicable": say why, and what the section may name instead. */
-function noneStudied(option: string, c: CorrectionComparison, system: string): UsageError {
-  const names = arrangementNames(system);
+function noneStudied(option: string, c: CorrectionComparison, system: string, region: Region): UsageError {
+  const names = arrangementNames(system, region);
   const why = c.outcomes.map((o) => `${names[o.arrangement]}: ${o.notApplicable ?? 'not studied'}`).join('; ');
   return new UsageError(
     `${option}: the file's correction section names no arrangement, and trivar correct could study none with its settings (${why}); name one that fits with correction.arrangement (${c.outcomes.map((o) => o.arrangement).join(', ')})`,
@@ -55,8 +57,9 @@ export function boardCorrection(board: Board, section: Record<string, unknown>, 
   if (section.arrangement !== undefined) return { report: harmonic ? correctWithHarmonics(spec, board, section) : correctBoard(board, section), recommended: null };
   const c = harmonic ? compareWithHarmonics(spec, board, section) : compareCorrections(board, section);
   const chosen = c.outcomes.find((o) => o.arrangement === c.recommended)?.report;
-  if (!chosen) throw noneStudied(option, c, board.system);
-  return { report: chosen, recommended: arrangementNames(board.system)[chosen.arrangement] };
+  const region = conventionsOf(board).region;
+  if (!chosen) throw noneStudied(option, c, board.system, region);
+  return { report: chosen, recommended: arrangementNames(board.system, region)[chosen.arrangement] };
 }
 
 /** The same on an installation, on the board the study places the equipment on. */
@@ -68,13 +71,15 @@ export function installationCorrection(installation: Installation, study: Record
   }
   const c = compareInstallationCorrections(installation, study, placement);
   const chosen = c.comparison.outcomes.find((o) => o.arrangement === c.comparison.recommended)?.report;
-  const system = (c.comparison.outcomes.find((o) => o.report)?.report ?? chosen)?.verification.before.board.system ?? installation.main.system;
-  if (!chosen || !c.effect) throw noneStudied(option, c.comparison, system);
-  return { report: chosen, recommended: arrangementNames(system)[chosen.arrangement], board: c.board, effect: c.effect, measuredAt: c.measuredAt };
+  const before = (c.comparison.outcomes.find((o) => o.report)?.report ?? chosen)?.verification.before;
+  const system = before?.board.system ?? installation.main.system;
+  const region = before?.conventions.region ?? conventionsOf(installation.main).region;
+  if (!chosen || !c.effect) throw noneStudied(option, c.comparison, system, region);
+  return { report: chosen, recommended: arrangementNames(system, region)[chosen.arrangement], board: c.board, effect: c.effect, measuredAt: c.measuredAt };
 }
 
 /** "the delta bank" / "the recommended delta bank" (the file names none), for messages. */
-const what = (c: FileCorrection) => `the ${c.recommended ? `recommended ${c.recommended} (the file's correction section names no arrangement)` : arrangementNames(c.report.verification.before.board.system)[c.report.arrangement]}`;
+const what = (c: FileCorrection) => `the ${c.recommended ? `recommended ${c.recommended} (the file's correction section names no arrangement)` : arrangementNames(c.report.verification.before.board.system, c.report.verification.before.conventions.region)[c.report.arrangement]}`;
 
 /**
  * The bank a correction study builds, as simulator steps — or a usage error saying why it cannot be
@@ -104,5 +109,5 @@ export function switchedBankOf(c: FileCorrection, option: string): SwitchingFrom
       `${option}: no step of ${what(c)} is one the simulator can switch (its steps are on ${across}, several branches to a step that is not three-phase), so none of it can be simulated; ${accepted}`,
     );
   }
-  return { ...bank, design: { arrangement: r.arrangement, words: arrangementNames(system)[r.arrangement], recommended: c.recommended !== null } };
+  return { ...bank, design: { arrangement: r.arrangement, words: arrangementNames(system, r.verification.before.conventions.region)[r.arrangement], recommended: c.recommended !== null } };
 }

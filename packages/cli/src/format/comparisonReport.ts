@@ -1,6 +1,6 @@
 /** CorrectionComparison → the side-by-side report of `trivar correct` without an arrangement (fits 100 columns). */
 import { boundFigure } from './correctionReport.js';
-import { arrangementNames, type Arrangement, type ArrangementOutcome, type CorrectionComparison, type HarmonicComparison, signedPfText } from '@trivar/core';
+import { arrangementNames, type Arrangement, type Region, type ArrangementOutcome, type CorrectionComparison, type HarmonicComparison, signedPfText } from '@trivar/core';
 import { fixed, renderTable, section } from './textTable.js';
 import { headerLines } from './solveReport.js';
 import { renderCorrectionReport, renderNothingToAdd } from './correctionReport.js';
@@ -14,15 +14,24 @@ const TWO_LINE_LEGEND = 'L-N bank: capacitors from each line to the neutral; L-L
  * compensator shortened, on a split-phase board L-N / L-L so the table keeps to 100 columns, and on a
  * single-phase board, whose one bank is capacitors across the supply, "capacitors".
  */
-export const tableNames = (system: string): Readonly<Record<Arrangement, string>> => {
-  const names = { ...arrangementNames(system), 'balancing-compensator': 'compensator' };
+export const tableNames = ({ system, region }: ComparedBoard): Readonly<Record<Arrangement, string>> => {
+  const names = { ...arrangementNames(system, region), 'balancing-compensator': 'compensator' };
   // A single-phase board's one bank: capacitors across the supply, nothing to tell apart.
   if (system === 'single-phase') return { ...names, 'star-bank': 'capacitors' };
-  return names['star-bank'] === 'star bank' ? names : { ...names, ...TWO_LINE_TABLE_NAMES };
+  return system === 'three-phase-4wire' || system === 'three-phase-3wire' ? names : { ...names, ...TWO_LINE_TABLE_NAMES };
 };
 
-/** The system of the board compared (every outcome's study is of the same board). */
-export const comparedSystem = (c: CorrectionComparison): string => c.outcomes.find((o) => o.report)?.report?.verification.before.board.system ?? 'three-phase-4wire';
+/** What the wording reads of the board compared: its system and the region whose words it takes. */
+export interface ComparedBoard {
+  readonly system: string;
+  readonly region: Region;
+}
+
+/** The board compared (every outcome's study is of the same board). */
+export const comparedBoard = (c: CorrectionComparison): ComparedBoard => {
+  const before = c.outcomes.find((o) => o.report)?.report?.verification.before;
+  return before ? { system: before.board.system, region: before.conventions.region } : { system: 'three-phase-4wire', region: 'iec' };
+};
 
 const VERDICT: Record<string, string> = {
   'meets-target': 'meets',
@@ -66,14 +75,15 @@ function row(o: ArrangementOutcome, names: Readonly<Record<Arrangement, string>>
 export function renderComparisonReport(c: CorrectionComparison): string {
   const failing = failingHarmonicCheck(c);
   const first = c.outcomes.find((o) => o.report)?.report;
-  const system = comparedSystem(c);
-  const names = tableNames(system);
+  const compared = comparedBoard(c);
+  const names = tableNames(compared);
+  const fullNames = arrangementNames(compared.system, compared.region);
   // Every arrangement has nothing to add: the verdict and the board's figures, not a table of zeros.
   const studied = c.outcomes.filter((o) => o.report);
   // One arrangement fits (a single-phase board's capacitors across the supply): nothing to set side by side.
   if (first && studied.length === 1 && !c.outcomes.some((o) => o.notApplicable) && first.status !== 'already-meets-target') return renderCorrectionReport(first);
   if (first && studied.every((o) => o.report!.status === 'already-meets-target'))
-    return renderNothingToAdd(first, studied.length === 1 ? `a ${arrangementNames(system)[first.arrangement]}` : `every arrangement studied (${studied.map((o) => arrangementNames(system)[o.arrangement]).join(', ')})`);
+    return renderNothingToAdd(first, studied.length === 1 ? `a ${fullNames[first.arrangement]}` : `every arrangement studied (${studied.map((o) => fullNames[o.arrangement]).join(', ')})`);
   const parts: string[] = [];
   if (first) {
     parts.push(headerLines(first.verification.before).slice(0, 2).join('\n'));
@@ -99,13 +109,13 @@ export function renderComparisonReport(c: CorrectionComparison): string {
       '\n' +
       [
         `${names['star-bank'] === TWO_LINE_TABLE_NAMES['star-bank'] ? `${TWO_LINE_LEGEND}; ` : ''}delivered: kvar at the solved voltage (+L: reactor kvar); nom C: at nominal capacitance only;${c.outcomes.some((o) => o.report?.status === 'no-suitable-units' && (o.report.selection?.units ?? 0) > 0) ? ' part built: no unit suits some branches, the rest built without them;' : ''}${c.outcomes.some(overloading) ? ' overloads: meets the target, but with it in a conductor or the supply is above its rating (see Recommendation);' : ''}${failing.size ? ' fails check: meets the target, but no variant passes the harmonic check;' : ''} plate: nameplate kvar; PF after: the PF the target is defined on (per-line: the lowest line); neutral: A after; loss: source + feeder after`,
-        ...c.outcomes.filter((o) => o.notApplicable).map((o) => `${arrangementNames(system)[o.arrangement]}: ${o.notApplicable}`),
+        ...c.outcomes.filter((o) => o.notApplicable).map((o) => `${fullNames[o.arrangement]}: ${o.notApplicable}`),
       ]
         .map((l) => wrapText(l, '  ', '    '))
         .join('\n'),
   );
   parts.push(section('Recommendation') + wrapText(c.why, '  ', '    ') + '\n' + wrapText(`(rule: ${c.rule})`, '  ', '    '));
   const chosen = c.outcomes.find((o) => o.arrangement === c.recommended)?.report;
-  if (chosen) parts.push(section(`The recommended ${arrangementNames(system)[chosen.arrangement]} in full`) + '\n' + renderCorrectionReport(chosen).trimEnd());
+  if (chosen) parts.push(section(`The recommended ${fullNames[chosen.arrangement]} in full`) + '\n' + renderCorrectionReport(chosen).trimEnd());
   return `${parts.join('\n')}\n`;
 }

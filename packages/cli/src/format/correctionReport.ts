@@ -1,5 +1,5 @@
 /** CorrectionReport → the human-readable report of `trivar correct` (fits 100 columns). */
-import { arrangementDescriptions, arrangementNames, BUILD_VERDICT_WORDS, CORRECTION_DEFAULTS, labellerOf, meteringPointWords, reactorChanges, smallBranchWords, sparedBranchesWords, type BankSelection, type BankStep, type BeforeAfter, type BranchSizing, type CompensatorSizing, type ControllerSettings, type CorrectionReport, type CorrectionVerification, type FewerBranchesBuild, type PhaseId, type RoundingBesideReactors, type PhaseLabeller, signedPfText, linePfText, exportingLinesNote } from '@trivar/core';
+import { arrangementDescriptions, arrangementNames, BUILD_VERDICT_WORDS, CORRECTION_DEFAULTS, labellerOf, meteringPointWords, reactorChanges, smallBranchWords, sparedBranchesWords, type BankSelection, type BankStep, type BeforeAfter, type BranchSizing, type CompensatorSizing, type ControllerSettings, type CorrectionReport, type CorrectionVerification, type FewerBranchesBuild, type PhaseId, type RoundingBesideReactors, type PhaseLabeller, signedPfText, linePfText, exportingLinesNote, starWordOf, type StarWord } from '@trivar/core';
 import { fixed, renderTable, section } from './textTable.js';
 import { headerLines } from './solveReport.js';
 import { wrapText } from './wrapText.js';
@@ -66,14 +66,14 @@ function sizingTable(branches: readonly BranchSizing[], label: PhaseLabeller): s
 }
 
 /** The branches of a step, short: a three-branch step by its connection. */
-const branchWords = (s: BankStep, label: PhaseLabeller) =>
+const branchWords = (s: BankStep, label: PhaseLabeller, star: StarWord) =>
   s.branches.length === 3
-    ? `${label('ABC')} ${s.branches[0]!.endsWith('-N') ? 'star-N' : s.branches[0]!.endsWith('-star') ? 'star' : 'delta'}`
+    ? `${label('ABC')} ${s.branches[0]!.endsWith('-N') ? `${star}-N` : s.branches[0]!.endsWith('-star') ? star : 'delta'}`
     : s.branches.map(label).join(' ');
 const unitWords = (s: BankStep) => `${s.unit.kind === 'three-phase' ? '3-ph' : '1-ph'} ${fixed(s.unit.ratedKvar, 2)} kvar ${fixed(s.unit.ratedV, 0)} V`;
 const partWords: Record<BankStep['part'], string> = { fixed: 'fixed', balanced: 'balanced', trim: 'trim', single: 'single' };
 
-function stepsTable(sel: BankSelection, label: PhaseLabeller): string {
+function stepsTable(sel: BankSelection, label: PhaseLabeller, star: StarWord): string {
   return renderTable(
     [
       { header: 'step', align: 'left' },
@@ -89,7 +89,7 @@ function stepsTable(sel: BankSelection, label: PhaseLabeller): string {
     sel.steps.map((s) => [
       s.output === null ? '-' : String(s.output),
       partWords[s.part],
-      branchWords(s, label),
+      branchWords(s, label, star),
       String(s.units),
       unitWords(s),
       fixed(s.nameplateKvar, 2),
@@ -158,12 +158,12 @@ function controllerLines(c: ControllerSettings): string[] {
   ];
 }
 
-function selectionBlock(sel: BankSelection, label: PhaseLabeller): string {
+function selectionBlock(sel: BankSelection, label: PhaseLabeller, star: StarWord): string {
   const out: string[] = [];
   out.push(
     `  delivered ${fixed(sel.deliveredKvar, 2)} kvar at the solved voltage · nameplate ${fixed(sel.nameplateKvar, 2)} kvar · ${sel.units} unit${sel.units === 1 ? '' : 's'} · ${sel.steps.filter((s) => s.output !== null).length} switched step(s)`,
   );
-  if (sel.steps.length) out.push(stepsTable(sel, label));
+  if (sel.steps.length) out.push(stepsTable(sel, label, star));
   out.push(
     indentLines([
       `units from the ${sel.catalogueTitle}${sel.catalogue === 'typical' ? ` — ${sel.catalogueNote}` : ''}`,
@@ -346,9 +346,9 @@ function compensatorBlock(c: CompensatorSizing, ideal: CorrectionVerification | 
     .join('\n');
 }
 
-/** The floating-star rule, said where it applies. */
-const FLOATING_STAR_NOTE =
-  'a floating star bank is sized as its exact delta equivalent (Y–Δ transform of the capacitances) and mapped back; its star point settles where the three capacitor currents sum to zero';
+/** The floating-star rule, said where it applies, in the board's word for star (wye in North America). */
+const floatingStarNote = (star: StarWord) =>
+  `a floating ${star} bank is sized as its exact delta equivalent (Y–Δ transform of the capacitances) and mapped back; its ${star} point settles where the three capacitor currents sum to zero`;
 
 /** Lines as solved without equipment: the before side of `lineTable`, for a board with nothing to add. */
 function lineTableNow(v: Pick<CorrectionVerification, 'lines'>, label: PhaseLabeller): string {
@@ -404,12 +404,12 @@ const targetWords = (r: CorrectionReport): string =>
   `${r.target.statement}; PF ≥ ${boundFigure(r.target.pf)}${r.target.leading === 'never' ? ', never leading' : ', leading allowed'}${r.target.maxLaggingPf === null ? '' : `, at most ${fixed(r.target.maxLaggingPf, 3)} lagging`}${r.target.measuredAt === undefined ? '' : `; measured at ${meteringPointWords(r.target.measuredAt)}`}`;
 
 export function renderCorrectionReport(r: CorrectionReport): string {
-  if (r.status === 'already-meets-target') return renderNothingToAdd(r, `a ${arrangementNames(r.verification.before.board.system)[r.arrangement]}`);
+  if (r.status === 'already-meets-target') return renderNothingToAdd(r, `a ${arrangementNames(r.verification.before.board.system, r.verification.before.conventions.region)[r.arrangement]}`);
   const v = r.verification;
   const label = labelsOf(v);
   const parts = [
     headerLines(v.before).slice(0, 2).join('\n'),
-    wrapText(`correction: ${arrangementDescriptions(v.before.board.system)[r.arrangement]}`, '', '  '),
+    wrapText(`correction: ${arrangementDescriptions(v.before.board.system, v.before.conventions.region)[r.arrangement]}`, '', '  '),
     wrapText(`target: ${targetWords(r)}`, '', '  '),
     '',
     wrapText(`${headline(r)} — ${r.summary}`, '', '  '),
@@ -419,12 +419,13 @@ export function renderCorrectionReport(r: CorrectionReport): string {
   if (r.sizing.arrangement === 'balancing-compensator') parts.push(section('Compensator sizing') + compensatorBlock(r.sizing, r.idealVerification, r.reactorResizing, r.fewerBranchesBuild, r.roundingBesideReactors, label));
   else {
     const shift = r.sizing.starPointShift;
+    const star = starWordOf(v.before.conventions.region);
     const shiftLines = shift
-      ? `\n${indentLines([`floating star point of the bank: ${fixed(shift.magnitude, 2)} V from the centroid of the line voltages`, FLOATING_STAR_NOTE])}`
+      ? `\n${indentLines([`floating ${star} point of the bank: ${fixed(shift.magnitude, 2)} V from the centroid of the line voltages`, floatingStarNote(star)])}`
       : '';
     parts.push(section('Sizing (continuous, before choosing units)') + sizingTable(r.sizing.branches, label) + shiftLines);
   }
-  if (r.selection) parts.push(section('Bank as built from units') + selectionBlock(r.selection, label));
+  if (r.selection) parts.push(section('Bank as built from units') + selectionBlock(r.selection, label, starWordOf(v.before.conventions.region)));
   if (v.metering) parts.push(meteringSection(v.metering, lineTable(v.metering, label)));
   parts.push(section('Lines, before → after (verified by re-solving the board)') + lineTable(v, label));
   parts.push(section('Board, before → after') + boardLines(v));

@@ -21,7 +21,7 @@ import { renderComparisonHarmonics, renderCorrectionHarmonics } from './correcti
 import { fixed, renderTableWithin, section } from './textTable.js';
 import { treeName } from './boardTree.js';
 import { renderCorrectionReport } from './correctionReport.js';
-import { comparedSystem, renderComparisonReport, tableNames } from './comparisonReport.js';
+import { comparedBoard, renderComparisonReport, tableNames } from './comparisonReport.js';
 import { REPORT_WIDTH, wrapText } from './wrapText.js';
 
 const note = (text: string) => `${wrapText(text, '  (', '   ', REPORT_WIDTH - 1)})`;
@@ -139,9 +139,9 @@ export function renderInstallationCorrection(c: InstallationCorrection): string 
 /** The recommended arrangement's effect on every board; nothing when it adds nothing (every "x→x"). */
 function recommendedEffect(c: InstallationComparison): string {
   const recommended = c.comparison.outcomes.find((o) => o.arrangement === c.comparison.recommended)?.report;
-  const system = comparedSystem(c.comparison);
+  const compared = comparedBoard(c.comparison);
   return c.effect && recommended && recommended.status !== 'already-meets-target'
-    ? `\nThe recommended ${arrangementNames(system)[recommended.arrangement]} across the installation\n${renderInstallationEffect(c.effect)}`
+    ? `\nThe recommended ${arrangementNames(compared.system, compared.region)[recommended.arrangement]} across the installation\n${renderInstallationEffect(c.effect)}`
     : '';
 }
 
@@ -172,6 +172,6 @@ export function renderInstallationCorrectionWithHarmonics(c: InstallationHarmoni
 
 export function renderInstallationComparisonWithHarmonics(c: InstallationHarmonicComparison): string {
   const effect = recommendedEffect(c);
-  const harmonics = renderComparisonHarmonics(c.comparison.harmonics, tableNames(comparedSystem(c.comparison)));
+  const harmonics = renderComparisonHarmonics(c.comparison.harmonics, tableNames(comparedBoard(c.comparison)));
   return `${placeLines(c)}\n${renderComparisonReport(c.comparison)}${harmonics}${withoutBankLines(c.board, c.resonanceWithoutBank)}${effect}`;
 }

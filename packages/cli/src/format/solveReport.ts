@@ -173,7 +173,7 @@ function loadTable(r: BoardResult): string {
   const asDelta = r.loads.filter(solvedAsEquivalentDelta).map((l) => `"${l.name}"`);
   if (asDelta.length)
     notes.push(
-      `${asDelta.join(', ')}: a floating star of constant-power or constant-current elements has no unique star-point position, so it is solved as its equivalent delta (its rating shared by the three line-to-line pairs; V is line-to-line). Rate it in ohms or as constant-impedance to see its star point.`,
+      `${asDelta.join(', ')}: a floating ${wordsOf(r).starWord} of constant-power or constant-current elements has no unique ${wordsOf(r).starWord}-point position, so it is solved as its equivalent delta (its rating shared by the three line-to-line pairs; V is line-to-line). Rate it in ohms or as constant-impedance to see its ${wordsOf(r).starWord} point.`,
     );
   if (r.loads.some((l) => l.pfAssumed)) notes.push(assumedPfNote(r.loads.filter((l) => l.pfAssumed).map((l) => l.kW)));
   for (const l of r.loads) {

@@ -3,6 +3,7 @@ import type { Installation } from '../board/boardModel.js';
 import { ratedKvarInService } from '../network/installationModel.js';
 import type { BankInServiceReading } from './installationResult.js';
 import { assertInstallationModel } from '../board/modelGuards.js';
+import { checkObjectArgument } from '../_internal/argumentChecks.js';
 
 /** The state assumed, in one clause: which banks, which steps. */
 export const BANKS_IN_SERVICE_BASIS = 'as the file lists them under harmonics.banks, every step on unless the entry’s stepsInService names the steps';
@@ -16,6 +17,7 @@ const kvar = (x: number) => (Number.isInteger(x) ? String(x) : x.toFixed(2));
  * //=> 'Paint shed 10 kvar rated (step 2 of 10+10 kvar; 440 V units)'
  */
 export function bankInServiceWords(b: Omit<BankInServiceReading, 'deliveredKvar'>, deliveredKvar?: number): string {
+  checkObjectArgument(b, 'b', 'a bank in service as a result lists it (result.banksInService[i])', ['stepsKvar', 'stepsInService', 'fixedKvar', 'ratedV']);
   const all = b.stepsKvar.map(kvar).join('+');
   const n = b.stepsInService.length;
   const steps = n === b.stepsKvar.length ? `every step: ${all} kvar` : n ? `step${n === 1 ? '' : 's'} ${b.stepsInService.join('+')} of ${all} kvar` : `no step of ${all} kvar`;

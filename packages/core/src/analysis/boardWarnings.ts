@@ -12,6 +12,7 @@ import { unbalanceFigure, VOLTAGE_UNBALANCE_LIMITS } from '../board/conventions/
 import { circuitNumberMismatches, overlappingCircuitPositions, sharedCircuitNumbers } from './panelNumbering.js';
 import { unitWords } from './sourceUnitsWords.js';
 import { lengthFigure, type FeederRouteLengths } from '../board/feederModel.js';
+import { quoteText } from '../errors.js';
 
 export const WARNING_THRESHOLDS = {
   /** Supply band of the open-neutral study's flags: ±10 % of nominal (EN 50160 LV band). Board voltages follow the board's `conventions.voltageLimits`. */
@@ -180,7 +181,7 @@ export function boardWarnings(input: {
         const shown = voltageBesideBand(limits, { volts: b.voltage.magnitude, percent: b.voltagePercent });
         out.push({
           code: side === 'over' ? 'overvoltage' : 'undervoltage',
-          message: `load "${load.name}" (${label(b.from)}-${label(b.to)}) sees ${shown.volts} V, ${shown.percent} % of nominal, outside ${band} (${limits.preset})`,
+          message: `load ${quoteText(load.name)} (${label(b.from)}-${label(b.to)}) sees ${shown.volts} V, ${shown.percent} % of nominal, outside ${band} (${limits.preset})`,
           value: b.voltagePercent,
           threshold: limitOf(side),
         });
@@ -199,15 +200,15 @@ export function boardWarnings(input: {
       out.push({
         code: 'circuit-over-breaker',
         message: generates
-          ? `circuit "${load.name}" feeds back ${above(load.currentA, load.breakerA)} A, above its ${rating} A breaker (${rule.words}): the breaker and conductors are too small for what the source sends back, or its output in the file is too high; check the source's rated output current and the breaker`
-          : `circuit "${load.name}" draws ${above(load.currentA, load.breakerA)} A, above its ${rating} A breaker (${rule.words}): the circuit is overloaded; a small overload can run for hours before a breaker trips, heating the cable meanwhile; check the load and the rating in the file`,
+          ? `circuit ${quoteText(load.name)} feeds back ${above(load.currentA, load.breakerA)} A, above its ${rating} A breaker (${rule.words}): the breaker and conductors are too small for what the source sends back, or its output in the file is too high; check the source's rated output current and the breaker`
+          : `circuit ${quoteText(load.name)} draws ${above(load.currentA, load.breakerA)} A, above its ${rating} A breaker (${rule.words}): the circuit is overloaded; a small overload can run for hours before a breaker trips, heating the cable meanwhile; check the load and the rating in the file`,
         value: load.currentA,
         threshold: load.breakerA,
       });
     else if (load.currentA > allowed)
       out.push({
         code: generates ? 'output-circuit-over-breaker-share' : 'continuous-load-over-breaker-share',
-        message: `circuit "${load.name}" ${flows} ${fmt(load.currentA)} A, above ${fmt(allowed)} A, ${fmt(rule.share * 100, 0)} % of its ${rating} A breaker (${rule.words}): give it a larger breaker and conductors${generates ? '' : ', or mark it continuous: false if it never runs 3 h at a time'}`,
+        message: `circuit ${quoteText(load.name)} ${flows} ${fmt(load.currentA)} A, above ${fmt(allowed)} A, ${fmt(rule.share * 100, 0)} % of its ${rating} A breaker (${rule.words}): give it a larger breaker and conductors${generates ? '' : ', or mark it continuous: false if it never runs 3 h at a time'}`,
         value: load.currentA,
         threshold: allowed,
       });
@@ -223,10 +224,10 @@ export function boardWarnings(input: {
       const column = m.poles === 1 ? `${m.circuit} alone for a 1-pole breaker` : `${stacked.slice(0, -1).join(', ')} and ${stacked.at(-1)} for a ${m.poles}-pole breaker at ${m.circuit}`;
       const message =
         m.kind === 'pole-count'
-          ? `load "${m.name}" on circuit ${written} has a ${m.poles}-pole breaker, but the circuit names ${m.positions.length} positions: a breaker takes one position per pole (${column}); check the schedule or the poles`
+          ? `load ${quoteText(m.name)} on circuit ${written} has a ${m.poles}-pole breaker, but the circuit names ${m.positions.length} positions: a breaker takes one position per pole (${column}); check the schedule or the poles`
           : m.kind === 'not-stacked'
-            ? `load "${m.name}" on circuit ${written}: the poles of one breaker sit one above the other in a column (${column}), not at ${written}; check the schedule`
-          : `load "${m.name}" on circuit ${written} is written ${label(m.connection)}, but ${numbering} puts circuit ${written}${m.with.length ? ` (with ${m.with.join(' and ')})` : ''} on ${m.implied.length > 1 ? m.implied.map(label).join('-') : `phase ${label(m.implied[0]!)}`}: check the schedule or the connection`;
+            ? `load ${quoteText(m.name)} on circuit ${written}: the poles of one breaker sit one above the other in a column (${column}), not at ${written}; check the schedule`
+          : `load ${quoteText(m.name)} on circuit ${written} is written ${label(m.connection)}, but ${numbering} puts circuit ${written}${m.with.length ? ` (with ${m.with.join(' and ')})` : ''} on ${m.implied.length > 1 ? m.implied.map(label).join('-') : `phase ${label(m.implied[0]!)}`}: check the schedule or the connection`;
       out.push({
         code: m.kind === 'phases' ? 'circuit-number-phase' : 'circuit-number-poles',
         message,
@@ -241,13 +242,13 @@ export function boardWarnings(input: {
       const at = (p: readonly number[]) => (p.length === 1 ? `position ${p[0]}` : `positions ${p.join(', ')}`);
       out.push({
         code: 'circuit-positions-overlap',
-        message: `loads "${a}" (${at(o.positions[0])}) and "${b}" (${at(o.positions[1])}) both need ${at(o.common)}: a breaker position holds one pole of one breaker; check the schedule or the poles`,
+        message: `loads ${quoteText(a)} (${at(o.positions[0])}) and ${quoteText(b)} (${at(o.positions[1])}) both need ${at(o.common)}: a breaker position holds one pole of one breaker; check the schedule or the poles`,
         value: o.common[0]!,
         threshold: phases.length,
       });
     }
   for (const shared of sharedCircuitNumbers(loads)) {
-    const names = shared.names.map((n) => `"${n}"`);
+    const names = shared.names.map((n) => `${quoteText(n)}`);
     out.push({
       code: 'circuit-number-shared',
       message: `loads ${names.slice(0, -1).join(', ')} and ${names.at(-1)} ${names.length === 2 ? 'both' : 'all'} give circuit ${shared.circuit}: one breaker position holds one circuit; check the schedule`,
@@ -258,7 +259,7 @@ export function boardWarnings(input: {
   for (const b of input.belowThreshold)
     out.push({
       code: 'load-below-model-threshold',
-      message: `load "${b.name}" sees ${fmt(b.pu * 100)} % of ${b.ratingV === undefined ? 'its nominal voltage' : `the ${fmt(b.ratingV)} V its rating is taken at`}, below the ${fmt(b.threshold * 100, 0)} % at which its constant-current/constant-power part is taken as an impedance: it draws less than its rating here, and a real device may stall or trip`,
+      message: `load ${quoteText(b.name)} sees ${fmt(b.pu * 100)} % of ${b.ratingV === undefined ? 'its nominal voltage' : `the ${fmt(b.ratingV)} V its rating is taken at`}, below the ${fmt(b.threshold * 100, 0)} % at which its constant-current/constant-power part is taken as an impedance: it draws less than its rating here, and a real device may stall or trip`,
       value: b.pu * 100,
       threshold: b.threshold * 100,
     });

@@ -1,6 +1,7 @@
 /** Limits and all wording of the open-neutral study's findings. */
 import type { OpenNeutralLoadReading, OpenNeutralState, OpenNeutralWithoutRule } from './boardResult.js';
 import type { RegionWords } from '../board/conventions/regionWords.js';
+import { quoteText } from '../errors.js';
 
 export const OPEN_NEUTRAL_LIMITS = {
   /**
@@ -19,7 +20,7 @@ const fmt = (x: number, digits = 1) => x.toFixed(digits);
 const ohms = (r: number) => (r >= 10 ? fmt(r, 0) : r >= 1 ? fmt(r, 1) : r.toPrecision(2));
 
 function listLoads(loads: readonly OpenNeutralLoadReading[]): string {
-  const names = loads.map((l) => `"${l.name}"`);
+  const names = loads.map((l) => `${quoteText(l.name)}`);
   return names.length <= 3 ? names.join(', ') : `${names.slice(0, 3).join(', ')} and ${names.length - 3} more`;
 }
 
@@ -75,13 +76,13 @@ export function openNeutralFindings(input: {
     const first = input.otherStates[0]!;
     const diff = largestDifference(reached, first);
     out.push(
-      `The open-neutral equations have ${input.otherStates.length + 1} solutions. Another one has "${diff.other.name}" at ${fmt(diff.other.voltage)} V (${fmt(diff.other.voltagePercent)} %) instead of ${fmt(diff.load.voltage)} V; it is not reached from the intact board${input.reachedFromIntact ? '' : ' either'}, so a direct solve of the open board alone could have reported it.`,
+      `The open-neutral equations have ${input.otherStates.length + 1} solutions. Another one has ${quoteText(diff.other.name)} at ${fmt(diff.other.voltage)} V (${fmt(diff.other.voltagePercent)} %) instead of ${fmt(diff.load.voltage)} V; it is not reached from the intact board${input.reachedFromIntact ? '' : ' either'}, so a direct solve of the open board alone could have reported it.`,
     );
   }
   if (input.dependsOnLoadModel && input.impedanceModel) {
     const diff = largestDifference(reached, input.impedanceModel);
     out.push(
-      `The answer depends on the load model: with every load as a constant impedance, "${diff.load.name}" would see ${fmt(diff.other.voltage)} V (${fmt(diff.other.voltagePercent)} %) instead of ${fmt(diff.load.voltage)} V.`,
+      `The answer depends on the load model: with every load as a constant impedance, ${quoteText(diff.load.name)} would see ${fmt(diff.other.voltage)} V (${fmt(diff.other.voltagePercent)} %) instead of ${fmt(diff.load.voltage)} V.`,
     );
   }
   return out;

@@ -5,6 +5,7 @@
  */
 import { abs, type ComplexValue } from '../complex.js';
 import { powerParts } from './powerReading.js';
+import { checkObjectArgument } from '../_internal/argumentChecks.js';
 
 export interface ApparentPowerReading {
   readonly kVA: number;
@@ -74,6 +75,7 @@ export function boardPowerDefinitions(input: {
   readonly threePhase: boolean;
   readonly sequence: { V1: ComplexValue; I1: ComplexValue } | null;
 }): BoardPowerDefinitions {
+  checkObjectArgument(input, 'input', 'the phase powers, voltages and currents of a solved board', ['phasePowers', 'phaseVoltages', 'phaseCurrents', 'lineToLine']);
   const p = input.phasePowers.reduce((s, x) => s + x.re, 0);
   const q = input.phasePowers.reduce((s, x) => s + x.im, 0);
   const sA = input.phaseVoltages.reduce((s, v, k) => s + v * input.phaseCurrents[k]!, 0);

@@ -6,6 +6,7 @@ import { abs, mul, sub } from '../complex.js';
 import type { NetworkSolution } from '../network/solveNetwork.js';
 import { lineRatingOf } from '../board/boardModel.js';
 import type { IncomerReading, LineToLineReading, OperatingPoint, PhaseReading, SourceUnitReading, TransformerReading } from './boardResult.js';
+import { quoteText } from '../errors.js';
 
 export const SUPPLY_LIMITS = {
   /**
@@ -104,7 +105,7 @@ export function judgeOperatingPoint(
     findings.push(`the board voltage has collapsed to ${low.map((b) => `${b.label} ${b.percent.toFixed(1)} %`).join(', ')} of nominal (below ${limit} %)`);
   if (!board.neutralOpen && belowThreshold.length) {
     // Each at its % of its nominal voltage, or of the voltage its rating is taken at where that is not the nominal the tables print against.
-    const named = belowThreshold.slice(0, 3).map((b) => `"${b.name}" at ${(b.pu * 100).toFixed(1)} % of ${b.ratingV === undefined ? 'its nominal voltage' : `the ${b.ratingV.toFixed(1)} V its rating is taken at`}`);
+    const named = belowThreshold.slice(0, 3).map((b) => `${quoteText(b.name)} at ${(b.pu * 100).toFixed(1)} % of ${b.ratingV === undefined ? 'its nominal voltage' : `the ${b.ratingV.toFixed(1)} V its rating is taken at`}`);
     const more = belowThreshold.length > 3 ? ` and ${belowThreshold.length - 3} more` : '';
     findings.push(
       `the supply cannot deliver the rated power of ${named.join(', ')}${more}: below ${(solution.lowVoltageThreshold * 100).toFixed(0)} % a constant-power or constant-current load is taken as an impedance, so the figures describe a state the real loads would not settle in`,

@@ -10,6 +10,7 @@ import { voltageBesideBand } from '../board/conventions/voltageBesideBand.js';
 import { checkNumberArgument } from '../_internal/argumentChecks.js';
 import { argumentError, isObject } from '../board/modelGuards.js';
 import type { BoardResult, LineToLineReading, LoadReading, PhaseReading } from './boardResult.js';
+import { quoteText } from '../errors.js';
 
 export interface VoltageExtreme {
   readonly percent: number;
@@ -58,7 +59,7 @@ export function checkVoltages(input: {
   const byNeutral = input.hasNeutral || input.lineToLine.length === 0;
   const points: VoltageExtreme[] = boardVoltagePoints(input.phases, input.lineToLine, input.hasNeutral, label).map(({ percent, at }) => ({ percent, at }));
   for (const load of input.loads)
-    if (load.energised) for (const b of load.branches) points.push({ percent: b.voltagePercent, at: `"${load.name}"` });
+    if (load.energised) for (const b of load.branches) points.push({ percent: b.voltagePercent, at: `${quoteText(load.name)}` });
   const lowest = points.reduce((a, b) => (b.percent < a.percent ? b : a));
   const highest = points.reduce((a, b) => (b.percent > a.percent ? b : a));
   const under = judgeVoltage(limits, lowest.percent) === 'under';

@@ -3,17 +3,18 @@
  * named function returning the problems it finds; `validateBoard` runs all of
  * them so the user sees every problem in one pass.
  */
-import { inputIssue, type InputIssue } from '../errors.js';
+import { inputIssue, type InputIssue, quoteText } from '../errors.js';
 import type { BoardBaseSpec, ConductorSpec, FeederSpec, LoadBaseSpec, SupplySpec, SystemKind } from './boardSchema.js';
 import { isThreePhase, phasesOf, systemHasNeutral } from './systemTopology.js';
 import { conductorResistance, tabulatedSizes } from './cableLibrary.js';
 import { readVoltageNotation } from './conventions/voltageNotation.js';
 import { nominalVoltagesOf } from './nominalVoltages.js';
-import { PHYSICAL_RANGES } from './boardRanges.js';
+import { PHYSICAL_RANGES, SYSTEMS } from './boardRanges.js';
 import { groupDigits } from '../_internal/groupDigits.js';
 import { labellerOf, type PhaseLabeller, type PhaseNaming } from './conventions/phaseNames.js';
 import { isPerPhaseLine, lengthOf, materialOf, sizeOf } from './feederModel.js';
 import { conductorSizeHint } from './conductorSizeSpelling.js';
+import { checkWordArgument } from '../_internal/argumentChecks.js';
 
 /**
  * A cross-field rule: the problems it finds in a board that passed the schema, its sentences naming
@@ -36,7 +37,7 @@ function ruleVoltageGiven(board: BoardBaseSpec): InputIssue[] {
         inputIssue(
           'conflict',
           `${path}.written`,
-          `the notation written as the voltage itself (voltage: "${voltage.written}"), or lineToLine ${lineToLineV} and lineToNeutral ${lineToNeutralV} beside it`,
+          `the notation written as the voltage itself (voltage: ${quoteText(voltage.written)}), or lineToLine ${lineToLineV} and lineToNeutral ${lineToNeutralV} beside it`,
           voltage.lineToLine === undefined && voltage.lineToNeutral === undefined
             ? 'written with no figures beside it'
             : `lineToLine ${voltage.lineToLine ?? 'not given'}, lineToNeutral ${voltage.lineToNeutral ?? 'not given'}`,
@@ -322,6 +323,7 @@ function poleIssues(load: LoadBaseSpec, path: string, label: PhaseLabeller): Inp
 
 /** The connections a load may use on each system. */
 export function acceptedConnections(system: BoardBaseSpec['supply']['system']): string[] {
+  checkWordArgument(system, 'system', SYSTEMS);
   switch (system) {
     case 'three-phase-4wire':
       return ['A-N', 'B-N', 'C-N', 'A-B', 'B-C', 'C-A', 'ABC-star', 'ABC-delta'];

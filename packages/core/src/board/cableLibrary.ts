@@ -23,7 +23,7 @@
  * scale with the supply frequency.
  */
 import { PHYSICAL_RANGES, type CONDUIT_KINDS } from './boardRanges.js';
-import { argumentIssueError, checkNumberArgument } from '../_internal/argumentChecks.js';
+import { argumentIssueError, checkNumberArgument, checkObjectArgument } from '../_internal/argumentChecks.js';
 import { ownEntry } from '../_internal/ownEntry.js';
 
 export type ConductorMaterial = 'copper' | 'aluminium';
@@ -127,6 +127,9 @@ function table9Kcmil(column: Readonly<Record<string, number>>, kcmil: number): {
  * refuse the pair). Null for an AWG size outside Table 9's range.
  */
 export function conductorReactance(size: ConductorSize, frequencyHz: number, conduit: ConduitKind = 'non-magnetic'): ConductorReactance | null {
+  checkObjectArgument(size, 'size', 'a conductor size: { mm2 }, { awg } or { kcmil }');
+  if (!('mm2' in size) && !('awg' in size) && !('kcmil' in size)) throw argumentIssueError('size', 'a conductor size: { mm2 }, { awg } or { kcmil }', size);
+  checkNumberArgument(frequencyHz, 'frequencyHz', 'a frequency, Hz, above 0', (x) => x > 0);
   if ('mm2' in size)
     return {
       ohmPerKm: (DEFAULT_CABLE_REACTANCE_OHM_PER_KM * frequencyHz) / DEFAULT_CABLE_REACTANCE_HZ,

@@ -3,7 +3,7 @@
  * under one main board, and each board passes the board rules (its feeder and
  * loads checked at their own paths).
  */
-import { inputIssue, type InputIssue } from '../errors.js';
+import { inputIssue, type InputIssue, quoteText } from '../errors.js';
 import type { BoardBaseSpec } from './boardSchema.js';
 import { missingNeutralWords, ruleFeederNeutral, usesNeutral, type BoardRule } from './boardRules.js';
 import type { PhaseNaming } from './conventions/phaseNames.js';
@@ -72,7 +72,7 @@ function ruleTree(spec: InstallationBaseSpec): InputIssue[] {
   if (mains.length === 0) issues.push(inputIssue('missing', 'boards', 'one main board with no fedFrom: the board the supply feeds'));
   for (const i of mains.slice(1))
     issues.push(
-      inputIssue('two_supplies', `boards[${i}].fedFrom`, `the board that feeds "${spec.boards[i]!.name}": only one board takes the supply (boards[${mains[0]}] "${spec.boards[mains[0]!]!.name}" already does)`),
+      inputIssue('two_supplies', `boards[${i}].fedFrom`, `the board that feeds ${quoteText(spec.boards[i]!.name)}: only one board takes the supply (boards[${mains[0]}] ${quoteText(spec.boards[mains[0]!]!.name)} already does)`),
     );
   const names = [...index.keys()];
   spec.boards.forEach((b, i) => {
@@ -126,7 +126,7 @@ function ruleFeederConductors(spec: InstallationBaseSpec): InputIssue[] {
       const b = stack.pop()!;
       if (seen.has(b)) continue;
       seen.add(b);
-      for (const l of b.loads.filter(usesNeutral)) (l.connection === 'ABC-star' ? found.star : found.lineToNeutral).push(`"${l.name}" on ${b.name}`);
+      for (const l of b.loads.filter(usesNeutral)) (l.connection === 'ABC-star' ? found.star : found.lineToNeutral).push(`${quoteText(l.name)} on ${b.name}`);
       stack.push(...(children.get(b.name) ?? []));
     }
     return found;

@@ -15,6 +15,8 @@ import { REBALANCE_NOTES } from '../rebalance/rebalanceWording.js';
 import { studyInstallationHarmonics } from './studyInstallationHarmonics.js';
 import { parseBoard } from './validateBoard.js';
 import { parseInstallation } from './validateInstallation.js';
+import { checkObjectArgument } from '../_internal/argumentChecks.js';
+import { assertText } from '../board/modelGuards.js';
 
 function hasHarmonicData(input: unknown): boolean {
   return isInstallationInput(input) ? installationHasHarmonicData(parseInstallation(input)) : boardHasHarmonicData(parseBoard(input));
@@ -36,6 +38,8 @@ function neutrals(input: unknown) {
  * @param text the board or installation file the report was made from (YAML or JSON).
  */
 export function withHarmonicNeutral(report: RebalanceReport, text: string): RebalanceReport {
+  checkObjectArgument(report, 'report', 'a rebalance report from rebalanceBoard(...)');
+  assertText(text, 'text');
   if (report.oneLine) return report;
   const input = readBoardText(text);
   if (!hasHarmonicData(input)) return report;

@@ -7,6 +7,7 @@ import { labelIn } from '../board/conventions/phaseNames.js';
 import { BANKS_IN_SERVICE_BASIS, bankInServiceWords } from '../analysis/banksInServiceWords.js';
 import { meteringPointWords } from './correctionWording.js';
 import type { LeadingWithBanks, OtherBankInService, ReplacedBank } from './correctInstallation.js';
+import { checkObjectArgument } from '../_internal/argumentChecks.js';
 
 export interface BanksPlacement {
   readonly board: string;
@@ -17,6 +18,7 @@ export interface BanksPlacement {
 
 /** The sentences, each null when there is nothing to say; `leading` is a warning. */
 export function banksPlacementWords(c: BanksPlacement): { readonly inService: string | null; readonly replaced: string | null; readonly leading: string | null } {
+  checkObjectArgument(c, 'c', "a correction's placement of banks (correctInstallation(...).banksPlacement)", ['otherBanksInService', 'replacedBank']);
   const inService = c.otherBanksInService.length
     ? `Banks in service in every solve, before and after, ${BANKS_IN_SERVICE_BASIS}: ${c.otherBanksInService.map((b) => bankInServiceWords(b)).join('; ')}.`
     : null;

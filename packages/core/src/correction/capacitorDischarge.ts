@@ -5,6 +5,7 @@
  * definition, read by the correction study's controller settings and by the profile's simulated bank.
  */
 import type { Practice } from './correctionSpec.js';
+import { checkNumberArgument } from '../_internal/argumentChecks.js';
 
 export interface CapacitorDischarge {
   readonly seconds: number;
@@ -19,4 +20,7 @@ export const CAPACITOR_DISCHARGE: Readonly<Record<Practice, CapacitorDischarge>>
 };
 
 /** Practice a board follows when none is given: 60 Hz boards are taken as North-American, 50 Hz as IEC (a rule of thumb; set `practice` where it is wrong). */
-export const defaultPractice = (frequencyHz: number): Practice => (frequencyHz === 60 ? 'north-american' : 'iec');
+export function defaultPractice(frequencyHz: number): Practice {
+  checkNumberArgument(frequencyHz, 'frequencyHz', 'a frequency, Hz, above 0', (x) => x > 0);
+  return frequencyHz === 60 ? 'north-american' : 'iec';
+}

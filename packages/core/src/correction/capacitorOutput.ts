@@ -3,6 +3,7 @@
  * Q = Q_r·(V/V_r)²·(f/f_r), from Q = 2πf·C·V² with C fixed by the rating.
  */
 import type { CapacitorUnitSpec } from './correctionSpec.js';
+import { checkNumberArgument, checkObjectArgument } from '../_internal/argumentChecks.js';
 
 export interface AppliedConditions {
   /** Voltage across the unit, V rms (line-to-neutral in a star bank, line-to-line in a delta bank). */
@@ -32,6 +33,13 @@ export const unitCapacitanceF = (unit: Pick<CapacitorUnitSpec, 'ratedKvar' | 'ra
  * //=> 6.944… (= 10 × (400/480)²)
  */
 export function capacitorOutput(unit: Pick<CapacitorUnitSpec, 'ratedKvar' | 'ratedV' | 'ratedHz'>, applied: AppliedConditions): CapacitorOutput {
+  checkObjectArgument(unit, 'unit', 'a capacitor unit { ratedKvar, ratedV, ratedHz }', ['ratedKvar', 'ratedV', 'ratedHz']);
+  checkNumberArgument(unit.ratedKvar, 'unit.ratedKvar', 'a rated output, kvar, at least 0', (x) => x >= 0);
+  checkNumberArgument(unit.ratedV, 'unit.ratedV', 'a rated voltage, V, above 0', (x) => x > 0);
+  checkNumberArgument(unit.ratedHz, 'unit.ratedHz', 'a rated frequency, Hz, above 0', (x) => x > 0);
+  checkObjectArgument(applied, 'applied', 'the conditions applied { voltageV, frequencyHz }', ['voltageV', 'frequencyHz']);
+  checkNumberArgument(applied.voltageV, 'applied.voltageV', 'a voltage, V, at least 0', (x) => x >= 0);
+  checkNumberArgument(applied.frequencyHz, 'applied.frequencyHz', 'a frequency, Hz, above 0', (x) => x > 0);
   const kvar = unit.ratedKvar * (applied.voltageV / unit.ratedV) ** 2 * (applied.frequencyHz / unit.ratedHz);
   return {
     kvar,

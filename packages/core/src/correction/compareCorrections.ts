@@ -175,7 +175,7 @@ export function recommendArrangement(outcomes: readonly ArrangementOutcome[], am
     ? near.reduce((a, b) => (b.figures.lossesKW < a.figures.lossesKW - 1e-12 ? b : a))
     : near.reduce((a, b) => (closeness(b) > closeness(a) ? b : a));
   const others = studied.filter((o) => o !== chosen);
-  const names = arrangementNames(chosen.report.verification.before.board.system);
+  const names = arrangementNames(chosen.report.verification.before.board.system, chosen.report.verification.before.conventions.region);
   const why = comparisonWording.why(
     names[chosen.arrangement],
     chosen.report.status,

@@ -12,7 +12,7 @@ import { CAPACITOR_DISCHARGE } from './capacitorDischarge.js';
 import { CORRECTION_DEFAULTS } from './correctionDefaults.js';
 import type { BankStep, ControllerSettings } from './correctionResult.js';
 import type { ControllerSpec, Practice } from './correctionSpec.js';
-import { argumentIssueError, checkNumberArgument } from '../_internal/argumentChecks.js';
+import { argumentIssueError, checkListArgument, checkNumberArgument, checkObjectArgument } from '../_internal/argumentChecks.js';
 
 /** IEC 61869-2 preferred CT primary ratings: 10, 12.5, 15, 20, 25, 30, 40, 50, 60, 75 A and their decimal multiples (from memory). */
 const CT_SERIES = [10, 12.5, 15, 20, 25, 30, 40, 50, 60, 75];
@@ -71,6 +71,8 @@ export interface ControllerInputs {
 
 /** Controller settings for the switched steps (C/k from the step with the smallest threshold), or null when the bank has none. */
 export function controllerSettings(input: ControllerInputs): ControllerSettings | null {
+  checkObjectArgument(input, 'input', "the controller's inputs { spec, practice, ct, steps, band }", ['spec', 'practice', 'ct', 'steps', 'band']);
+  checkListArgument(input.steps, 'input.steps', "the bank's steps (a selection's steps)", (x) => typeof x === 'object' && x !== null);
   const switched = input.steps.filter((s) => s.output !== null);
   if (!switched.length) return null;
   const { primaryA, secondaryA, chosen } = input.ct;

@@ -26,7 +26,7 @@ import { CORRECTION_DEFAULTS, toleranceFractions } from './correctionDefaults.js
 import { refitReactors, selectionWithResizedReactors, type RefitOutcome } from './_internal/refitReactors.js';
 import { conventionsOf } from '../board/conventions/boardConventions.js';
 import { labellerOf, type PhaseLabeller } from '../board/conventions/phaseNames.js';
-import { regionWords } from '../board/conventions/regionWords.js';
+import { regionWords, starWordOf } from '../board/conventions/regionWords.js';
 import { assertBoardModel } from '../board/modelGuards.js';
 
 /** @param use `limitsOnly` for the light-load sizing, read only for its limits (see ResolvedBankOptions) */
@@ -69,7 +69,7 @@ function starPointWarnings(sizing: BankSizing | CompensatorSizing, board: Board)
   return [
     {
       code: 'star-point-shift',
-      message: warningText.starPointShift(shift, (100 * shift) / ln, Math.min(...volts), Math.max(...volts)),
+      message: warningText.starPointShift(shift, (100 * shift) / ln, Math.min(...volts), Math.max(...volts), starWordOf(conventionsOf(board).region)),
       path: 'starPoint',
       value: shift,
       threshold: STAR_SHIFT_WARNING * ln,
@@ -115,7 +115,7 @@ export function correctBoard(board: Board, spec: unknown): CorrectionReport {
   assertViableBoard(board);
   const parsed = { ...checked, arrangement: checked.arrangement };
   // Sentences name phases and branches the way the board file does (L1-L2 or A-B); data keys stay A/B/C.
-  const phaseNames = conventionsOf(board).phaseNames;
+  const { phaseNames, region } = conventionsOf(board);
   const label = labellerOf(phaseNames);
   const target = resolveTarget(parsed.target, board, parsed.arrangement);
   const sizing = sizeArrangement(board, parsed);
@@ -147,6 +147,7 @@ export function correctBoard(board: Board, spec: unknown): CorrectionReport {
         deliveryFloorPercent: parsed.deliveryFloorPercent,
         lightLoad: lightSizedFor(how.heldBranches),
         phaseNames,
+        region,
         besideReactors: how.besideReactors,
       }),
     );
@@ -297,7 +298,7 @@ export function correctBoard(board: Board, spec: unknown): CorrectionReport {
       ? [{ code: 'controller-reads-elsewhere', message: meteringWarning(verification.metering.point, board.name), path: 'target.measuredAt', value: null, threshold: null }]
       : []),
   ];
-  const what = arrangementNames(board.system)[parsed.arrangement];
+  const what = arrangementNames(board.system, conventionsOf(board).region)[parsed.arrangement];
   const delivered = selection?.deliveredKvar ?? 0;
   const nameplate = selection?.nameplateKvar ?? 0;
   return {

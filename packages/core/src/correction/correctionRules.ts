@@ -4,12 +4,13 @@
  * user sees them all at once.
  */
 import type { Board } from '../board/boardModel.js';
-import { inputIssue, type InputIssue } from '../errors.js';
+import { inputIssue, type InputIssue, quoteText } from '../errors.js';
 import type { CorrectionSpec } from './correctionSpec.js';
 import { CORRECTION_DEFAULTS } from './correctionDefaults.js';
 import { meteringPointIssues } from './meteringPoint.js';
 import { conventionsOf } from '../board/conventions/boardConventions.js';
 import { labellerOf } from '../board/conventions/phaseNames.js';
+import { starWordOf } from '../board/conventions/regionWords.js';
 
 type Rule = (spec: CorrectionSpec, board: Board) => InputIssue[];
 
@@ -77,10 +78,11 @@ function ruleStarPoint(spec: CorrectionSpec, board: Board): InputIssue[] {
   if (spec.starPoint === undefined) return [];
   if (spec.arrangement !== undefined && spec.arrangement !== 'star-bank')
     return [inputIssue('not_applicable', 'starPoint', 'starPoint only with arrangement star-bank', spec.starPoint)];
+  const star = starWordOf(conventionsOf(board).region);
   if (spec.starPoint === 'neutral' && (!board.hasNeutral || board.neutralOpen))
-    return [inputIssue('no_neutral', 'starPoint', 'floating: this board has no neutral to tie the star point to', spec.starPoint)];
+    return [inputIssue('no_neutral', 'starPoint', `floating: this board has no neutral to tie the ${star} point to`, spec.starPoint)];
   if (spec.starPoint === 'floating' && !threePhase(board))
-    return [inputIssue('not_applicable', 'starPoint', `neutral on a ${board.system} board (a floating star needs three phases)`, spec.starPoint)];
+    return [inputIssue('not_applicable', 'starPoint', `neutral on a ${board.system} board (a floating ${star} needs three phases)`, spec.starPoint)];
   return [];
 }
 
@@ -121,7 +123,7 @@ function ruleMeasuredAt(spec: CorrectionSpec, board: Board): InputIssue[] {
   const point = spec.target?.measuredAt;
   const issues = meteringPointIssues(board, point);
   if (issues.length || point === undefined || point === board.name || spec.arrangement !== 'balancing-compensator') return issues;
-  return [inputIssue('not_applicable', 'target.measuredAt', `the compensator's own board "${board.name}": a balancing compensator balances and corrects where it is installed`, point)];
+  return [inputIssue('not_applicable', 'target.measuredAt', `the compensator's own board ${quoteText(board.name)}: a balancing compensator balances and corrects where it is installed`, point)];
 }
 
 export const CORRECTION_RULES: readonly Rule[] = [

@@ -126,7 +126,7 @@ export const correctionSpecSchema = z
     starPoint: z
       .enum(['neutral', 'floating'])
       .optional()
-      .describe('star bank only: star point tied to the neutral (default where there is one) or floating'),
+      .describe('star bank only (a wye bank in North America): its star point tied to the neutral (default where there is one) or floating'),
     share: z
       .enum(['equal', 'proportional'])
       .optional()

@@ -6,7 +6,11 @@ import type { PhaseLabel } from '../board/conventions/phaseNames.js';
 import type { PowerFactorSense } from '../analysis/boardResult.js';
 import type { Arrangement, TargetDefinition } from './correctionSpec.js';
 import type { BuildVerdict, SmallBranch, SparedBranch, TargetName } from './correctionResult.js';
-import { argumentIssueError } from '../_internal/argumentChecks.js';
+import { argumentIssueError, checkListArgument, checkNumberArgument, checkObjectArgument, checkWordArgument } from '../_internal/argumentChecks.js';
+import { starWordOf, type StarWord } from '../board/conventions/regionWords.js';
+import { REGIONS, type Region } from '../board/conventions/region.js';
+import { SYSTEMS } from '../board/boardRanges.js';
+import { quoteText } from '../errors.js';
 
 interface TargetWords {
   readonly definition: TargetDefinition;
@@ -119,11 +123,13 @@ interface ResizingWords {
   readonly reactors: readonly { readonly branch: PhaseLabel; readonly sizedKvar: number; readonly resizedKvar: number }[];
 }
 /** Each branch with a reactor before or after, as printed (a branch with none either side is not a change). */
-export const reactorChanges = (reactors: ResizingWords['reactors']) =>
-  reactors
+export const reactorChanges = (reactors: ResizingWords['reactors']): string => {
+  checkListArgument(reactors, 'reactors', 'a list of { branch, sizedKvar, resizedKvar } (a reactor re-sizing\'s reactors)', (r) => typeof r === 'object' && r !== null && typeof (r as { sizedKvar?: unknown }).sizedKvar === 'number' && typeof (r as { resizedKvar?: unknown }).resizedKvar === 'number');
+  return reactors
     .filter((r) => r.sizedKvar.toFixed(2) !== '0.00' || r.resizedKvar.toFixed(2) !== '0.00')
     .map((r) => `${r.branch} ${r.sizedKvar.toFixed(2)} → ${r.resizedKvar.toFixed(2)} kvar`)
     .join(', ');
+};
 
 /** The bound a bank's units must stay within on the leading side, in words, by how the target bounds it. */
 export const NO_LEADING_LIMIT = 'no-leading limit';
@@ -135,7 +141,7 @@ export const warningText = {
     `the reactors were sized again beside the capacitors as built from units (${reactorChanges(reactors)} at nominal voltage): the build verified here has the re-sized reactors`,
   alreadyMet: 'the board already meets the target: nothing to add',
   unitFrequency: (name: string, ratedHz: number, hz: number) =>
-    `unit "${name}" is rated for ${ratedHz} Hz and used at ${hz} Hz: its output and current scale by ${f3(hz / ratedHz)}`,
+    `unit ${quoteText(name)} is rated for ${ratedHz} Hz and used at ${hz} Hz: its output and current scale by ${f3(hz / ratedHz)}`,
   unitsBelowTarget: (branch: PhaseLabel, limit: string = NO_LEADING_LIMIT) =>
     `branch ${branch}: the units cannot reach the requirement without passing the ${limit}; the design stays below the limit and short of the target`,
   unitsPastLimit: (branch: PhaseLabel, limit: string = NO_LEADING_LIMIT) => `branch ${branch}: no build of the available units stays within the ${limit}; the smallest that reaches the target is used`,
@@ -160,8 +166,8 @@ export const warningText = {
     `${branches.join(', ')}: no build fits in ${outputs} controller output${outputs === 1 ? '' : 's'}; steps were merged beyond what the controller allows`,
   stepBelowMinimum: (branches: readonly PhaseLabel[], minKvar: number) =>
     `${branches.join(', ')}: no build keeps every switched step at or above ${f1(minKvar)} kvar; the closest build is used`,
-  starPointShift: (shiftV: number, percent: number, lowV: number, highV: number) =>
-    `the floating star point of the bank sits ${f1(shiftV)} V (${percent.toFixed(0)} % of line-to-neutral) from the centroid of the line voltages, so its elements see ${f1(lowV)}–${f1(highV)} V: a star bank with unequal branches on a board without a neutral works against itself; consider a delta bank`,
+  starPointShift: (shiftV: number, percent: number, lowV: number, highV: number, star: StarWord = 'star') =>
+    `the floating ${star} point of the bank sits ${f1(shiftV)} V (${percent.toFixed(0)} % of line-to-neutral) from the centroid of the line voltages, so its elements see ${f1(lowV)}–${f1(highV)} V: a ${star} bank with unequal branches on a board without a neutral works against itself; consider a delta bank`,
   reactorsNeeded: (branches: readonly PhaseLabel[], capacitorShortfalls: readonly string[]) =>
     `with capacitors alone ${capacitorShortfalls.join('; ') || 'the target is not met'}: the recommended compensator includes reactors on ${branches.join(', ')} (Steinmetz/Gyugyi); set compensator.reactors: none for capacitors only`,
   reactorsNotSelected: 'reactors are given as continuous values only (kvar, mH); choosing reactor hardware is not part of this study',
@@ -223,6 +229,8 @@ function effectFigures(e: SmallBranch['effect']): string {
 
 /** A branch of the exact ideal solution below the negligible share (`percent` of the compensator), what became of it and why. */
 export function smallBranchWords(b: Omit<SmallBranch, 'branch'> & { branch: PhaseLabel }, percent: number): string {
+  checkObjectArgument(b, 'b', "a compensator's small branch (sizing.smallBranches[i]) with its branch label", ['kvarAtNominalV', 'effect', 'branch']);
+  checkNumberArgument(percent, 'percent', 'a share, %: a finite number');
   const what = `${b.kvarAtNominalV > 0 ? 'a capacitor' : 'a reactor'} of ${Math.abs(b.kvarAtNominalV).toFixed(2)} kvar on ${b.branch}, below ${f1(percent)} % of the compensator`;
   const without = `without it (the other branches re-sized by at most ${b.effect.largestResizeKvar.toFixed(2)} kvar, the board re-solved)`;
   const has = b.afterOthersLeftOut ? `sized again around the branches left out, the compensator has ${what}` : `the exact solution ${b.leftOut ? 'also ' : ''}has ${what}`;
@@ -239,6 +247,8 @@ export function smallBranchWords(b: Omit<SmallBranch, 'branch'> & { branch: Phas
  * //=> 'fewer branches: the programme spread the output over 6 branches; A-N (7.17 kvar), … left out and the others sized again, every target still met — PF1+ 0.950 → 0.950, |I2|/|I1| 0.00 → 0.03 %'
  */
 export function sparedBranchesWords(spared: readonly (Omit<SparedBranch, 'branch'> & { branch: PhaseLabel })[], spreadOver: number, allowancePercent: number): string {
+  checkListArgument(spared, 'spared', "a non-empty list of a compensator's spared branches with their labels", (x) => typeof x === 'object' && x !== null);
+  if (spared.length === 0) throw argumentIssueError('spared', "a non-empty list of a compensator's spared branches with their labels", spared);
   const first = spared[0]!.effect.with;
   const last = spared[spared.length - 1]!.effect.without;
   const effect = effectFigures({ with: first, without: last, largestResizeKvar: 0, missedWithout: [] });
@@ -262,7 +272,16 @@ export const selectionWording = {
    * @param ratings the catalogue's ratings, each with its frequency factor f/f_r (a 60 Hz unit on a 50 Hz
    *   board gives 5/6 of its output), which the delivery rule counts as well as (V/V_r)²
    */
-  noUnit: (branches: readonly PhaseLabel[], neededV: number, nominalV: number, floating: boolean, catalogue: string, floorPercent: number, units: readonly { readonly ratedV: number; readonly hzFactor: number }[]) => {
+  noUnit: (
+    branches: readonly PhaseLabel[],
+    neededV: number,
+    nominalV: number,
+    floating: boolean,
+    catalogue: string,
+    floorPercent: number,
+    units: readonly { readonly ratedV: number; readonly hzFactor: number }[],
+    star: StarWord = 'star',
+  ) => {
     const ratings = [...new Set(units.map((u) => u.ratedV))].sort((a, b) => a - b);
     // The way out the user controls: the lowest rating the voltage rule allows, and the floor that would take it.
     const nearest = ratings.find((v) => v >= neededV);
@@ -276,7 +295,7 @@ export const selectionWording = {
         : nearest !== undefined && Math.floor(delivers) >= 1
         ? `; the nearest, ${nearest} V, delivers ${delivers.toFixed(1)} % there${frequencyWords} (a deliveryFloorPercent of ${Math.floor(delivers)} in the correction accepts it), or give a catalogue with units rated ${f1(neededV)}–${f1(highestV)} V`
         : `; give a catalogue with units rated ${f1(neededV)}–${f1(highestV)} V`;
-    return `no unit in the ${catalogue} fits ${branches.join(', ')}: a unit there must be rated at least ${f1(neededV)} V and still deliver ${floorPercent.toFixed(0)} % of its nameplate at ${floating ? `the ${f1(nominalV)} V across it as solved (the star point floats)` : `the nominal ${f1(nominalV)} V across it`}${hzFactor === 1 ? '' : `, its output scaled by ${f3(hzFactor)} for running at the board's frequency instead of its rated one`}, i.e. be rated at most ${f1(highestV)} V; the catalogue has ${ratings.map((v) => `${v}`).join(', ')} V${remedy}`;
+    return `no unit in the ${catalogue} fits ${branches.join(', ')}: a unit there must be rated at least ${f1(neededV)} V and still deliver ${floorPercent.toFixed(0)} % of its nameplate at ${floating ? `the ${f1(nominalV)} V across it as solved (the ${star} point floats)` : `the nominal ${f1(nominalV)} V across it`}${hzFactor === 1 ? '' : `, its output scaled by ${f3(hzFactor)} for running at the board's frequency instead of its rated one`}, i.e. be rated at most ${f1(highestV)} V; the catalogue has ${ratings.map((v) => `${v}`).join(', ')} V${remedy}`;
   },
   costStatement: (unitCostKvar: number) =>
     `least cost = nameplate kvar + ${unitCostKvar} kvar-equivalent per unit bought, among the builds that best fit the tolerance window, the controller outputs and the minimum step`,
@@ -303,7 +322,11 @@ export const reportSummary = {
     `${what}: the target cannot be met with capacitors in this arrangement; the best reachable build is ${bankWords(delivered, nameplate)}`,
 };
 
-const THREE_PHASE_NAMES: Readonly<Record<Arrangement, string>> = { 'star-bank': 'star bank', 'delta-bank': 'delta bank', 'balancing-compensator': 'balancing compensator' };
+/** A three-phase board's names: the star bank in the region's word (a wye bank in North America). */
+const THREE_PHASE_NAMES: Readonly<Record<StarWord, Readonly<Record<Arrangement, string>>>> = {
+  star: { 'star-bank': 'star bank', 'delta-bank': 'delta bank', 'balancing-compensator': 'balancing compensator' },
+  wye: { 'star-bank': 'wye bank', 'delta-bank': 'delta bank', 'balancing-compensator': 'balancing compensator' },
+};
 /**
  * Star and delta need three phases: on a split-phase or single-phase board the same equipment is
  * capacitors from a line to the neutral, and across the two lines. Only the words change; the
@@ -316,17 +339,23 @@ const TWO_LINE_NAMES: Readonly<Record<Arrangement, string>> = { 'star-bank': 'li
  * the file asks for an arrangement that does not fit.
  */
 const SINGLE_PHASE_NAMES: Readonly<Record<Arrangement, string>> = { ...TWO_LINE_NAMES, 'star-bank': 'capacitor bank' };
+/** The arguments of the naming helpers: a board's system and region, never a guess for anything else. */
+const checkedSystem = (system: unknown, region: unknown): true => {
+  checkWordArgument(system, 'system', SYSTEMS);
+  checkWordArgument(region, 'region', REGIONS);
+  return true;
+};
 const threePhase = (system: string): boolean => system === 'three-phase-4wire' || system === 'three-phase-3wire';
 
-/** What each arrangement is called in sentences and tables on a board of this system. */
-export const arrangementNames = (system: string): Readonly<Record<Arrangement, string>> =>
-  threePhase(system) ? THREE_PHASE_NAMES : system === 'single-phase' ? SINGLE_PHASE_NAMES : TWO_LINE_NAMES;
+/** What each arrangement is called in sentences and tables on a board of this system, in its region's words (conventions.region). */
+export const arrangementNames = (system: string, region: Region): Readonly<Record<Arrangement, string>> =>
+  checkedSystem(system, region) && threePhase(system) ? THREE_PHASE_NAMES[starWordOf(region)] : system === 'single-phase' ? SINGLE_PHASE_NAMES : TWO_LINE_NAMES;
 
-/** Each arrangement said in full, for a report's heading line, on a board of this system. */
-export const arrangementDescriptions = (system: string): Readonly<Record<Arrangement, string>> =>
-  threePhase(system)
+/** Each arrangement said in full, for a report's heading line, on a board of this system, in its region's words. */
+export const arrangementDescriptions = (system: string, region: Region): Readonly<Record<Arrangement, string>> =>
+  checkedSystem(system, region) && threePhase(system)
     ? {
-        'star-bank': 'star-connected capacitor bank (one capacitor per phase)',
+        'star-bank': `${starWordOf(region)}-connected capacitor bank (one capacitor per phase)`,
         'delta-bank': 'delta-connected capacitor bank (one capacitor per line pair)',
         'balancing-compensator': 'balancing compensator (Steinmetz/Gyugyi reactive branches)',
       }

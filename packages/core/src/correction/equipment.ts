@@ -7,6 +7,7 @@
 import type { Board, BoardLoad, PhaseId, Terminal } from '../board/boardModel.js';
 import type { ConnectionSpec } from '../board/boardSchema.js';
 import { labelIn, type PhaseNaming } from '../board/conventions/phaseNames.js';
+import type { StarWord } from '../board/conventions/regionWords.js';
 import { assertBoardModel } from '../board/modelGuards.js';
 import { judgedNominalOf } from '../board/nominalVoltages.js';
 
@@ -89,6 +90,8 @@ export interface EquipmentGroupOptions {
   readonly fixedSusceptances?: readonly number[];
   /** How the board's file names its phases: a group of one branch is named with it (`star bank L1-N`). @defaultValue 'A/B/C' */
   readonly naming?: PhaseNaming;
+  /** The board's word for star, in a compensator's part name (`compensator wye part` in North America). @defaultValue 'star' */
+  readonly star?: StarWord;
 }
 
 /**
@@ -114,7 +117,7 @@ export function equipmentGroups(name: string, slots: readonly BranchSlot[], susc
     // The name is text for people (JSON and reports alike); `branch` and `connection` stay A/B/C data.
     return part.map((b) => ({ name: `${name} ${labelIn(naming, b.branch)}`, connection: `${b.from}-${b.to}` as ConnectionSpec, branches: [b] }));
   };
-  const groups = [...groupOf(delta, 'ABC-delta', 'delta part'), ...groupOf(star, 'ABC-star', 'star part')];
+  const groups = [...groupOf(delta, 'ABC-delta', 'delta part'), ...groupOf(star, 'ABC-star', `${options.star ?? 'star'} part`)];
   const firstIndex = (g: EquipmentGroup) => branches.indexOf(g.branches[0]!);
   return groups.sort((a, b) => firstIndex(a) - firstIndex(b));
 }

@@ -16,7 +16,7 @@ import type { Board, Installation, SubBoard } from '../board/boardModel.js';
 import type { BoardResult } from '../analysis/boardResult.js';
 import { analyseSolution } from '../analysis/analyseSolution.js';
 import { ZERO } from '../complex.js';
-import { inputIssue, type InputIssue } from '../errors.js';
+import { inputIssue, type InputIssue, quoteText } from '../errors.js';
 import { boardOfInstallation, installationOf } from '../network/installationModel.js';
 import { solveInstallationNetwork, type NetworkSolution, type SolveOptions } from '../network/solveNetwork.js';
 import { assertBoardModel } from '../board/modelGuards.js';
@@ -97,7 +97,7 @@ export function meteringPointIssues(board: Board, point: string | undefined, pat
     ];
   const accepted = meteringPoints(board);
   if (accepted.includes(point)) return [];
-  const expected = `${ORIGIN_POINT} (the supply's terminals, where the service cable starts) or a board the equipment's board "${board.name}" is fed through: ${accepted
+  const expected = `${ORIGIN_POINT} (the supply's terminals, where the service cable starts) or a board the equipment's board ${quoteText(board.name)} is fed through: ${accepted
     .slice(1)
     .map((n) => JSON.stringify(n))
     .join(', ')}`;

@@ -30,9 +30,12 @@ import type { BankSelection, BankSizing, BankStep, BranchSelection, CorrectionWa
 import { limitWords, selectionWording, warningText } from './correctionWording.js';
 import { parseOptions } from '../_internal/zodIssues.js';
 import { labellerOf, PHASE_NAMINGS, type PhaseNaming } from '../board/conventions/phaseNames.js';
+import { REGIONS, type Region } from '../board/conventions/region.js';
+import { starWordOf } from '../board/conventions/regionWords.js';
 import { firstFit, searchSet, shortOfTarget, type Need, type SetBuild, type UnitChoice } from './_internal/bankSearch.js';
 import { defaultPractice } from './capacitorDischarge.js';
 import { controllerSettings, resolveCurrentTransformer, responseThresholdA } from './controllerSettings.js';
+import { checkObjectArgument } from '../_internal/argumentChecks.js';
 
 export interface SelectBankUnitsOptions {
   /** Regional practice: typical catalogue, voltage margin, discharge time. @defaultValue 'north-american' at 60 Hz, 'iec' at 50 Hz */
@@ -65,6 +68,8 @@ export interface SelectBankUnitsOptions {
   readonly lightLoad?: SizedEquipment;
   /** How the board file names its phases: warnings name branches that way (data keys stay A/B/C). @defaultValue 'A/B/C' */
   readonly phaseNames?: PhaseNaming;
+  /** The board's region: a floating star point is said in its words (a wye point in North America). @defaultValue 'iec' */
+  readonly region?: Region;
   /**
    * Beside reactors: `down` keeps each capacitor at most at its requirement (the reactors as sized then
    * balance it), `up` allows the headroom a branch without a sized limit gets (the reactors are then
@@ -94,6 +99,7 @@ const selectOptionsSchema = z.strictObject({
   deliveryFloorPercent: z.number().min(0).max(100).optional(),
   lightLoad: z.custom<SizedEquipment>((v) => typeof v === 'object' && v !== null && Array.isArray((v as SizedEquipment).branches)).optional(),
   phaseNames: z.enum(PHASE_NAMINGS).optional(),
+  region: z.enum(REGIONS).optional(),
   besideReactors: z.enum(['down', 'up']).optional(),
 });
 
@@ -125,6 +131,7 @@ const elementF = (u: CatalogueUnit) => ((u.kind === 'three-phase' ? u.ratedKvar 
  * selection.controller?.responseThresholdA    //=> C/k of the smallest step, A
  */
 export function selectBankUnits(sized: SizedEquipment, options?: SelectBankUnitsOptions): BankSelection {
+  checkObjectArgument(sized, 'sized', 'a sizing from sizeStarBank, sizeDeltaBank or sizeBalancingCompensator', ['frequencyHz', 'branches', 'equipment']);
   const opts = parseOptions(selectOptionsSchema, options, 'selectBankUnits options');
   const practice = opts.practice ?? defaultPractice(sized.frequencyHz);
   const typical = opts.catalogue === undefined;
@@ -354,7 +361,7 @@ export function selectBankUnits(sized: SizedEquipment, options?: SelectBankUnits
       requiredRatedV,
       appliedV,
       floorV,
-      message: selectionWording.noUnit(names.map(label), requiredRatedV, floorV, floating, catalogueTitle, floor * 100, all.map((u) => ({ ratedV: u.unit.ratedV, hzFactor: hz / u.unit.ratedHz }))),
+      message: selectionWording.noUnit(names.map(label), requiredRatedV, floorV, floating, catalogueTitle, floor * 100, all.map((u) => ({ ratedV: u.unit.ratedV, hzFactor: hz / u.unit.ratedHz })), starWordOf(opts.region ?? 'iec')),
     };
   }
   if (sized.branches.some((b) => b.element === 'reactor')) warn('reactors-not-selected', warningText.reactorsNotSelected);

@@ -9,7 +9,7 @@
  * capacitance in service (the one that can make a board lead).
  */
 import type { BankInService, Installation } from '../board/boardModel.js';
-import { InputError, inputIssue, type InputIssue } from '../errors.js';
+import { InputError, inputIssue, type InputIssue, quoteText } from '../errors.js';
 import { boardOfInstallation, withBoardLoads } from '../network/installationModel.js';
 import { addInstalledBank, installedBankLayout } from './harmonicModel.js';
 import type { InstallationBankSpec } from './harmonicsSpec.js';
@@ -32,7 +32,7 @@ export function bankBoardsOf(banks: readonly InstallationBankSpec[] | undefined,
     const b = names.indexOf(bank.board);
     boardOf.push(b);
     if (b < 0) issues.push(inputIssue('unknown_board', `${path}.board`, `the name of a board in this installation: ${names.map((n) => JSON.stringify(n)).join(', ')}`, bank.board));
-    else if (seen.has(b)) issues.push(inputIssue('duplicate', `${path}.board`, `one bank per board (harmonics.banks[${seen.get(b)}] is already on "${bank.board}")`, bank.board));
+    else if (seen.has(b)) issues.push(inputIssue('duplicate', `${path}.board`, `one bank per board (harmonics.banks[${seen.get(b)}] is already on ${quoteText(bank.board)})`, bank.board));
     else seen.set(b, i);
     const layout = installedBankLayout(installation.main, bank.connection);
     if (!layout.ok) issues.push(inputIssue('not_applicable', `${path}.connection`, layout.expected, bank.connection));

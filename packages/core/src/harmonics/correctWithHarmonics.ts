@@ -33,6 +33,7 @@ import { DETUNING_FACTORS_PERCENT, capacitorVoltage, tuningOrder } from './detun
 import { dutyRatio } from './capacitorDuty.js';
 import type { CapacitorDuty, HarmonicsReport } from './harmonicsResult.js';
 import { assertBoardModel } from '../board/modelGuards.js';
+import { conventionsOf } from '../board/conventions/boardConventions.js';
 
 const capitalised = (text: string) => text.charAt(0).toUpperCase() + text.slice(1);
 
@@ -174,7 +175,7 @@ function asDetuned(report: CorrectionReport, p: number, percent: number, plainSe
     unitCostKvar,
     value: nameplate + unitCostKvar * selection.units + CORRECTION_DEFAULTS.reactorCostFactor * p * nameplate,
   };
-  const what = `${arrangementNames(report.verification.before.board.system)[report.arrangement]} with ${percent} % detuning reactors`;
+  const what = `${arrangementNames(report.verification.before.board.system, report.verification.before.conventions.region)[report.arrangement]} with ${percent} % detuning reactors`;
   const summary =
     report.status === 'already-meets-target' || report.status === 'no-suitable-units'
       ? reportSummary[report.status](what)
@@ -495,7 +496,8 @@ export function compareWithBankCheck<Check>(
   const choice = recommendArrangement(outcomes, passing.map((c) => c.outcome.arrangement));
   const pick = passing.find((c) => c.outcome.arrangement === choice.recommended) ?? null;
   const before = comparison.recommended;
-  const name = (a: Arrangement) => arrangementNames(board.system)[a];
+  const names = arrangementNames(board.system, conventionsOf(board).region);
+  const name = (a: Arrangement) => names[a];
   // An arrangement that meets the target as plain yet fails the harmonic check in every variant is said so.
   const failing = checked.filter((c) => c.harmonics && !c.harmonics.chosen && ['meets-target', 'meets-target-at-nominal-capacitance'].includes(c.outcome.report!.status)).map((c) => name(c.outcome.arrangement));
   const failingWords = failing.length ? ` ${capitalised(failing.join(' and '))} ${failing.length > 1 ? 'fail' : 'fails'} the harmonic check in every variant.` : '';

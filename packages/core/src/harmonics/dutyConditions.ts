@@ -10,12 +10,16 @@ import type { Board, BoardLoad, Installation } from '../board/boardModel.js';
 import type { CapacitanceTolerance, DutyCondition } from './harmonicsResult.js';
 import type { HarmonicModel, LoadBehaviour } from './harmonicModel.js';
 import { assertBoardModel, assertInstallationModel } from '../board/modelGuards.js';
+import { checkNumberArgument, checkObjectArgument } from '../_internal/argumentChecks.js';
 
 /**
  * Nominal with the loads as given first (ties keep the plain case), then the tolerance ends, then
  * the same with every load off; with `otherBanks`, all of that with the other banks on, then off.
  */
 export function dutyConditions(tolerance: CapacitanceTolerance, otherBanks = false): DutyCondition[] {
+  checkObjectArgument(tolerance, 'tolerance', 'a capacitance tolerance { minusPercent, plusPercent }', ['minusPercent', 'plusPercent']);
+  checkNumberArgument(tolerance.minusPercent, 'tolerance.minusPercent', 'a tolerance, %, from 0 to 100', (x) => x >= 0 && x <= 100);
+  checkNumberArgument(tolerance.plusPercent, 'tolerance.plusPercent', 'a tolerance, %, at least 0', (x) => x >= 0);
   const capacitance = [100, 100 - tolerance.minusPercent, 100 + tolerance.plusPercent].filter((c, i, all) => all.indexOf(c) === i);
   const plain = (['as given', 'off'] as const).flatMap((loads) => capacitance.map((capacitancePercent): DutyCondition => ({ capacitancePercent, loads })));
   return otherBanks ? (['on', 'off'] as const).flatMap((state) => plain.map((c): DutyCondition => ({ ...c, otherBanks: state }))) : plain;
@@ -77,6 +81,8 @@ export function withCapacitanceFactor(board: Board, model: HarmonicModel, factor
 
 /** A condition in words: `nominal capacitance, loads as given`, `capacitance +10 %, every load off`. */
 export function conditionWords(c: DutyCondition): string {
+  checkObjectArgument(c, 'c', "a duty condition (dutyConditions(...)[i], or a duty check's condition)", ['capacitancePercent', 'loads']);
+  checkNumberArgument(c.capacitancePercent, 'c.capacitancePercent', 'a capacitance, % of nominal: a finite number');
   const deviation = c.capacitancePercent - 100;
   const capacitance = deviation === 0 ? 'nominal capacitance' : `capacitance ${deviation > 0 ? '+' : '−'}${Math.abs(Number(deviation.toFixed(2)))} %`;
   const others = c.otherBanks === undefined ? '' : c.otherBanks === 'off' ? ', other banks out of service' : c.otherBanks === 'switched' ? `, ${c.otherBanksState}` : ', other banks on';

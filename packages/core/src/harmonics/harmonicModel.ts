@@ -16,6 +16,7 @@ import { TYPICAL_SPECTRA } from './typicalSpectra.js';
 import { assertBoardModel } from '../board/modelGuards.js';
 import { conventionsOf } from '../board/conventions/boardConventions.js';
 import { regionVoltageDistortionBasis, type VoltageDistortionBasis } from './voltageDistortionLimits.js';
+import { checkObjectArgument } from '../_internal/argumentChecks.js';
 
 /** One order of a spectrum: magnitude as a fraction of the fundamental, angle relative to h × the fundamental angle. */
 export interface OrderContent {
@@ -186,6 +187,7 @@ export function resolveHarmonicModel(spec: Pick<HarmonicsBoardSpec, 'loads' | 'h
 
 /** Every order something injects or the supply carries, ascending. */
 export function ordersPresent(model: HarmonicModel): number[] {
+  checkObjectArgument(model, 'model', "a board's harmonic model from resolveHarmonicModel(...)", ['background', 'loads']);
   const orders = new Set<number>(model.background.map((b) => b.order));
   for (const load of model.loads) if (load.kind === 'non-linear') for (const o of load.spectrum) orders.add(o.order);
   return [...orders].sort((a, b) => a - b);

@@ -6,6 +6,7 @@ import { distinctDigits } from '../correction/correctionWording.js';
 import type { BusVoltageDistortion, JointScan, NeutralCheck, VoltageDistortionCheck } from './harmonicsResult.js';
 import { levelText } from './voltageDistortionLimits.js';
 import { ROUND_OFF_MARGIN } from '../analysis/boardWarnings.js';
+import { checkNumberArgument, checkObjectArgument } from '../_internal/argumentChecks.js';
 
 const pct = (x: number) => `${x.toFixed(1)} %`;
 /** A figure above its limit, with the decimals it needs to read above it (5.04 %, never "5.0 %, above 5 %"). */
@@ -115,6 +116,7 @@ export const bankStateWords = (board: string, label: string): string => `${board
 
 /** What a joint scan covered, in words: each other bank's levels and how they were chosen. */
 export function jointCoverageWords(joint: JointScan): string {
+  checkObjectArgument(joint, 'joint', "a joint scan (a harmonics report's jointScan)", ['stateLimit']);
   const passing = `their states combined would pass ${joint.stateLimit} networks`;
   const how = {
     'every step combination': 'every state of their steps, whatever order they switch in, combined',
@@ -126,8 +128,12 @@ export function jointCoverageWords(joint: JointScan): string {
 }
 
 /** The nearest approach of a peak to a checked order, in words: `h 7.12, 1.7 % from 7`. */
-export const nearestWords = (n: { readonly order: number; readonly checkedOrder: number }): string =>
-  `h ${n.order.toFixed(2)}, ${((100 * Math.abs(n.order - n.checkedOrder)) / n.checkedOrder).toFixed(1)} % from ${n.checkedOrder}`;
+export const nearestWords = (n: { readonly order: number; readonly checkedOrder: number }): string => {
+  checkObjectArgument(n, 'n', "a resonance's nearest order { order, checkedOrder } (a scan peak's nearest)", ['order', 'checkedOrder']);
+  checkNumberArgument(n.order, 'n.order', 'a harmonic order: a finite number');
+  checkNumberArgument(n.checkedOrder, 'n.checkedOrder', 'a checked harmonic order above 0', (x) => x > 0);
+  return `h ${n.order.toFixed(2)}, ${((100 * Math.abs(n.order - n.checkedOrder)) / n.checkedOrder).toFixed(1)} % from ${n.checkedOrder}`;
+};
 
 export const harmonicsAssumptionText = {
   jointScan:

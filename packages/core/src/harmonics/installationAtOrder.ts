@@ -14,6 +14,7 @@ import { injectBranchSource, type FixedSolveOptions } from '../network/solveFixe
 import type { HarmonicModel } from './harmonicModel.js';
 import { boardAtOrder, branchAdmittanceAtOrderInto, contentAtOrder, impedanceAtOrder, injectionAtOrder } from './networkAtOrder.js';
 import { assertInstallationModel } from '../board/modelGuards.js';
+import { checkListArgument, checkNumberArgument, checkObjectArgument } from '../_internal/argumentChecks.js';
 
 /** The installation with its supply and every feeder at order h (`models`: one per board, 0 = main). */
 export function installationAtOrder(installation: Installation, models: readonly HarmonicModel[], h: number): Installation {
@@ -36,6 +37,9 @@ export function installationAtOrder(installation: Installation, models: readonly
  * @throws {NumericalError} when the network is singular at that order.
  */
 export function solveInstallationAtOrder(fundamental: InstallationSolution, models: readonly HarmonicModel[], h: number, options: FixedSolveOptions = {}): InstallationSolution {
+  checkObjectArgument(fundamental, 'fundamental', 'an installation solution at the fundamental (solveInstallationNetwork(installation))', ['installation', 'boards']);
+  checkListArgument(models, 'models', "every board's harmonic model, main board first", (x) => typeof x === 'object' && x !== null);
+  checkNumberArgument(h, 'h', 'a harmonic order above 0', (x) => x > 0);
   const installation = installationAtOrder(fundamental.installation, models, h);
   const compiled = options.networks ? options.networks.compileForLinearSolve(installation) : compileInstallation(installation);
   const branches = fundamental.boards.map((board) => board.branches);

@@ -14,6 +14,7 @@ import type { NetworkSolution } from '../network/solveNetwork.js';
 import { solveFixedNetwork, type FixedSolveOptions } from '../network/solveFixedNetwork.js';
 import type { HarmonicModel, LoadBehaviour } from './harmonicModel.js';
 import { detunedSusceptance } from './detuning.js';
+import { checkNumberArgument, checkObjectArgument } from '../_internal/argumentChecks.js';
 
 /** Scales a series impedance R + jX to order h. */
 export function impedanceAtOrder(z: ComplexValue, h: number, resistance: HarmonicModel['resistance'] = 'constant'): ComplexValue {
@@ -117,6 +118,9 @@ export function admittancesAtOrder(fundamental: NetworkSolution, model: Harmonic
  * @throws {NumericalError} when the network is singular at that order.
  */
 export function solveAtOrder(fundamental: NetworkSolution, model: HarmonicModel, h: number, options: FixedSolveOptions = {}): NetworkSolution {
+  checkObjectArgument(fundamental, 'fundamental', 'a network solution of the board at the fundamental (solveNetwork(board))', ['board', 'topology', 'nodeVoltages', 'branches']);
+  checkObjectArgument(model, 'model', "a board's harmonic model from resolveHarmonicModel(...)", ['loads', 'background']);
+  checkNumberArgument(h, 'h', 'a harmonic order above 0', (x) => x > 0);
   return solveFixedNetwork(boardAtOrder(fundamental.board, model, h), {
     admittances: admittancesAtOrder(fundamental, model, h),
     branchSources: injectionsAtOrder(fundamental, model, h),

@@ -22,6 +22,7 @@ import { copyNodalMatrix, createNodalMatrix, impedanceBetween, invertNodalMatrix
 import { SparseTerminalImpedance } from '../network/sparseTerminalImpedance.js';
 import type { HarmonicModel, LoadBehaviour } from './harmonicModel.js';
 import { branchAdmittanceAtOrderInto } from './networkAtOrder.js';
+import { checkListArgument, checkNumberArgument, checkObjectArgument } from '../_internal/argumentChecks.js';
 
 /** A bank the evaluator switches: the board it is on and its parts. */
 export interface ScanBank {
@@ -118,6 +119,9 @@ export function createInstallationScanEvaluator(
   boardIndex: number,
   options: ScanEvaluatorOptions = {},
 ): ScanEvaluator {
+  checkObjectArgument(fundamental, 'fundamental', 'an installation solution at the fundamental (solveInstallationNetwork(installation))', ['installation', 'boards']);
+  checkListArgument(models, 'models', "every board's harmonic model, main board first", (x) => typeof x === 'object' && x !== null);
+  checkNumberArgument(boardIndex, 'boardIndex', 'the index of a board of the installation (0 = the main board)', (x) => Number.isInteger(x) && x >= 0);
   const { layout, network } = compileInstallation(fundamental.installation);
   const circuit = network.circuit;
   const unknown = numberUnknowns(circuit, network.live);

@@ -24,6 +24,7 @@ import { bankKvarOn, combinationLabel, refinedPeaks, stepCombinations } from './
 import type { BankState, ScanEvaluator } from './scanEvaluator.js';
 import { bankStateWords } from './harmonicsWording.js';
 import { assertBoardModel } from '../board/modelGuards.js';
+import { argumentIssueError, checkListArgument, checkObjectArgument } from '../_internal/argumentChecks.js';
 
 /** A level of another bank as the scan sets it, with its words. */
 interface Level extends BankState {
@@ -91,6 +92,10 @@ export type NetworkState = readonly BankState[];
  * serve many states while memory stays bounded. `values[i·pairs + k]`: |Z| of pair k at grid point i.
  */
 export function scanNetworkStates(evaluator: ScanEvaluator, grid: readonly number[], states: readonly NetworkState[], each: (state: number, values: Float64Array, peaks: ScanPeak[]) => void): void {
+  checkObjectArgument(evaluator, 'evaluator', 'a scan evaluator from createInstallationScanEvaluator(...)', ['pairs']);
+  checkListArgument(grid, 'grid', 'the orders to scan, a list of numbers', (x) => typeof x === 'number');
+  checkListArgument(states, 'states', 'a list of network states');
+  if (typeof each !== 'function') throw argumentIssueError('each', 'a function called with each state\'s values and peaks', each);
   const nPairs = evaluator.pairs.length;
   const chunk = Math.max(1, Math.min(states.length, Math.floor(2 ** 21 / Math.max(1, grid.length * nPairs))));
   const values = Array.from({ length: chunk }, () => new Float64Array(grid.length * nPairs));
@@ -167,6 +172,10 @@ function summarise(scanned: readonly { readonly otherBanks: string; readonly pea
  * @throws {InputError} for a `stateLimit` that is not a whole number ≥ 1
  */
 export function scanJointResonance(fundamental: InstallationSolution, models: readonly HarmonicModel[], evaluator: ScanEvaluator, options: JointScanOptions): JointScan | null {
+  checkObjectArgument(fundamental, 'fundamental', 'an installation solution at the fundamental (solveInstallationNetwork(installation))', ['installation', 'boards']);
+  checkListArgument(models, 'models', "every board's harmonic model, main board first", (x) => typeof x === 'object' && x !== null);
+  checkObjectArgument(evaluator, 'evaluator', 'a scan evaluator from createInstallationScanEvaluator(...)', ['ownBank', 'banks']);
+  checkObjectArgument(options, 'options', 'the joint scan options ({} for the defaults)');
   const own = evaluator.ownBank;
   if (own < 0 || evaluator.banks.length < 2) return null;
   const limit = options.stateLimit ?? HARMONICS_DEFAULTS.jointStateLimit;

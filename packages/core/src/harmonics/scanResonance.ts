@@ -19,6 +19,7 @@ import { HARMONICS_DEFAULTS } from './harmonicsDefaults.js';
 import { stateKey, type BankModel, type HarmonicModel } from './harmonicModel.js';
 import type { ResonanceScan, ScanCombination, ScanPeak } from './harmonicsResult.js';
 import { assertBoardModel } from '../board/modelGuards.js';
+import { checkListArgument, checkNumberArgument, checkObjectArgument } from '../_internal/argumentChecks.js';
 
 /** Every on/off pattern of n steps, all off first. */
 export function stepCombinations(n: number): boolean[][] {
@@ -48,6 +49,8 @@ export function bankKvarOn(board: Board, bank: BankModel, steps: readonly boolea
 
 /** The evaluator of a single board's solution (the installation with one board). */
 export function createScanEvaluator(fundamental: NetworkSolution, model: HarmonicModel): ScanEvaluator {
+  checkObjectArgument(fundamental, 'fundamental', 'a network solution of the board at the fundamental (solveNetwork(board))', ['board', 'topology', 'nodeVoltages', 'branches']);
+  checkObjectArgument(model, 'model', "a board's harmonic model from resolveHarmonicModel(...)", ['loads', 'background', 'scan']);
   return createBoardScanEvaluator(fundamental, model);
 }
 
@@ -56,6 +59,7 @@ export function createScanEvaluator(fundamental: NetworkSolution, model: Harmoni
  * round per point: over a million points toPrecision would take longer than the scan).
  */
 export function roundForPlot(curve: Float64Array | readonly number[]): number[] {
+  if (!(curve instanceof Float64Array)) checkListArgument(curve, 'curve', 'a curve: a Float64Array or a list of numbers', (x) => typeof x === 'number');
   let largest = 0;
   for (let i = 0; i < curve.length; i++) if (curve[i]! > largest) largest = curve[i]!;
   if (!(largest > 0)) return Array.from(curve);
@@ -68,6 +72,8 @@ export function roundForPlot(curve: Float64Array | readonly number[]): number[] 
 
 /** The scan grid: 1, 1 + step, …, up to maxOrder. */
 export function scanGrid(maxOrder: number, step: number): number[] {
+  checkNumberArgument(maxOrder, 'maxOrder', 'the highest order to scan, at least 1', (x) => x >= 1);
+  checkNumberArgument(step, 'step', 'a step between orders above 0', (x) => x > 0);
   const count = Math.floor((maxOrder - 1) / step + 1e-9) + 1;
   return Array.from({ length: count }, (_, k) => Math.round((1 + k * step) * 1e9) / 1e9);
 }
@@ -183,6 +189,9 @@ export interface ScanOptions {
  * @param fundamental the solved board with every bank part on
  */
 export function scanResonance(fundamental: NetworkSolution, model: HarmonicModel, options: ScanOptions, evaluator: ScanEvaluator = createScanEvaluator(fundamental, model)): ResonanceScan {
+  checkObjectArgument(fundamental, 'fundamental', 'a network solution of the board at the fundamental (solveNetwork(board))', ['board', 'topology', 'nodeVoltages', 'branches']);
+  checkObjectArgument(model, 'model', "a board's harmonic model from resolveHarmonicModel(...)", ['loads', 'background', 'scan']);
+  checkObjectArgument(options, 'options', 'the scan options ({} for the defaults)');
   const board = fundamental.board;
   const grid = options.grid ?? scanGrid(model.scan.maxOrder, model.scan.step);
   const bank = model.bank;

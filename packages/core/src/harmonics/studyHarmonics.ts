@@ -227,7 +227,7 @@ function sourceAssumptions(board: Board, words: RegionWords): string[] {
   const alike = 'in the solve at each order and in the frequency scan alike';
   if (board.openDeltaCorner) {
     const corner = labelIn(conventionsOf(board).phaseNames, board.openDeltaCorner);
-    return [`the source an open delta as the file gives it: two windings meeting at line ${corner}, each with its own impedance, and no star point or neutral, so no zero-sequence current flows; ${alike}`];
+    return [`the source an open delta as the file gives it: two windings meeting at line ${corner}, each with its own impedance, and no ${words.starWord} point or neutral, so no zero-sequence current flows; ${alike}`];
   }
   if (board.sourceStarImpedance) return [`${words.sourceNeutralPoint} ${words.groundWord}ed through the zero-sequence impedance the file gives, ${alike}`];
   return [];

@@ -44,6 +44,7 @@ import {
   type HarmonicsOptions,
   type SwitchedOtherBanks,
 } from './studyHarmonics.js';
+import { checkObjectArgument } from '../_internal/argumentChecks.js';
 
 /** What the study reads of an installation file: the installation, its loads' harmonic fields and the `harmonics:` section. */
 export type HarmonicsInstallationSpec = Omit<InstallationBaseSpec, 'boards'> & {
@@ -235,7 +236,9 @@ export interface InstallationHarmonicsOptions extends HarmonicsOptions {
  * Runs the harmonic study on a resolved installation (`resolveInstallationHarmonics`).
  * @throws {NumericalError} when a solve fails, or reason `collapsed` when a board's supply has collapsed
  */
-export function analyseInstallationHarmonics({ installation, models, bankBoards }: InstallationHarmonicModel, options: InstallationHarmonicsOptions = {}): InstallationHarmonicsReport {
+export function analyseInstallationHarmonics(model: InstallationHarmonicModel, options: InstallationHarmonicsOptions = {}): InstallationHarmonicsReport {
+  checkObjectArgument(model, 'model', 'an installation harmonic model from resolveInstallationHarmonics(...)', ['installation', 'models', 'bankBoards']);
+  const { installation, models, bankBoards } = model;
   // One set of compiled networks for every solve: the study's and each bank's duty states', at every order.
   const networks = new CompiledNetworkCache();
   const { fundamental, solved } = solveOrders(installation, models, networks, options.solve);

@@ -16,6 +16,7 @@ import { abs, add, inverse, sub, ZERO, type ComplexValue } from '../complex.js';
 import type { Board, Installation, PhaseId, Terminal } from '../board/boardModel.js';
 import { REFERENCE, type Circuit, type CircuitBranch, type CircuitElement, type CircuitSource } from './circuit.js';
 import type { NetworkTopology } from './networkTopology.js';
+import { quoteText } from '../errors.js';
 
 export interface InstallationCircuit {
   readonly circuit: Circuit;
@@ -52,7 +53,7 @@ function terminalName(boardName: string | null, board: { loads: Board['loads'] }
   if (terminal === 'N') return boardName === null ? 'the board neutral bar' : `the neutral bar of ${boardName}`;
   if (terminal.startsWith('star:')) {
     const load = board.loads[Number(terminal.slice(5))];
-    return `the star point of load "${load?.name ?? terminal}"${boardName === null ? '' : ` on ${boardName}`}`;
+    return `the star point of load ${quoteText(load?.name ?? terminal)}${boardName === null ? '' : ` on ${boardName}`}`;
   }
   return `phase ${terminal} at ${at}`;
 }

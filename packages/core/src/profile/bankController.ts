@@ -29,6 +29,7 @@
  * target alone, as above.
  */
 import type { PhaseId } from '../board/boardModel.js';
+import { checkListArgument, checkObjectArgument } from '../_internal/argumentChecks.js';
 
 /** 'ABC': a three-phase step; a phase: a step from that line to the neutral; a line pair: a step across two lines. */
 export type StepChannel = 'ABC' | PhaseId | LinePair;
@@ -86,6 +87,8 @@ interface Wish {
 }
 
 export function createBankController(steps: readonly SwitchedStep[], settings: SwitchingSettings): BankController {
+  checkListArgument(steps, 'steps', 'a list of switched steps (switchingFromBank(...).steps)', (x) => typeof x === 'object' && x !== null);
+  checkObjectArgument(settings, 'settings', "the controller's switching settings (switchingFromBank(...).settings)");
   const n = steps.length;
   const on = new Uint8Array(n);
   const closings = new Int32Array(n);

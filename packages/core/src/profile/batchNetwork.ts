@@ -12,6 +12,7 @@
 import type { Board, LoadBranch, BoardLoad, Terminal } from '../board/boardModel.js';
 import type { ComplexValue } from '../complex.js';
 import { assertBoardModel } from '../board/modelGuards.js';
+import { quoteText } from '../errors.js';
 
 /** How one driver reaches the board's loads: load index → complex coefficient. */
 export interface DriverSpec {
@@ -95,7 +96,7 @@ export function foldDrivers<E extends BatchEdge>(
   drivers.forEach((driver, d) => {
     for (const { load, coefficient } of driver.loads) {
       const l = loads[load];
-      if (!l) throw new RangeError(`compileBatchNetwork: driver "${driver.name}" names load ${load}, which the board does not have`);
+      if (!l) throw new RangeError(`compileBatchNetwork: driver ${quoteText(driver.name)} names load ${load}, which the board does not have`);
       const share = 1 / l.branches.length;
       l.branches.forEach((b, k) => {
         const base = (d * E + branchEdge[load]![k]!) * 6;

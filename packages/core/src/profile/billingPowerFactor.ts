@@ -7,6 +7,8 @@ import { checkNumberArgument } from '../_internal/argumentChecks.js';
  * read as a perfect result.
  */
 export function billingPowerFactor(kWhImport: number, kvarhLagging: number): number | null {
+  checkNumberArgument(kWhImport, 'kWhImport', 'the imported energy, kWh: a finite number');
+  checkNumberArgument(kvarhLagging, 'kvarhLagging', 'the lagging reactive energy, kvarh: a finite number');
   return kWhImport > 0 ? kWhImport / Math.hypot(kWhImport, kvarhLagging) : null;
 }
 

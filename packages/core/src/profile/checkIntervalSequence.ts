@@ -5,6 +5,7 @@
  */
 import { InputError, inputIssue } from '../errors.js';
 import type { RawIntervals } from './readIntervalRows.js';
+import { argumentIssueError, checkListArgument, checkObjectArgument } from '../_internal/argumentChecks.js';
 
 export const GAP_FILLS = ['none', 'hold', 'linear'] as const;
 /** none: leave gaps out of every figure; hold: repeat the last reading; linear: interpolate between the readings either side. */
@@ -41,6 +42,8 @@ export interface IntervalTable {
 
 /** Joins row chunks read in parallel, in order. */
 export function concatRawIntervals(parts: readonly RawIntervals[]): RawIntervals {
+  checkListArgument(parts, 'parts', 'a non-empty list of raw intervals as a row reader gives them', (x) => typeof x === 'object' && x !== null);
+  if (parts.length === 0) throw argumentIssueError('parts', 'a non-empty list of raw intervals as a row reader gives them', parts);
   if (parts.length === 1) return parts[0]!;
   const count = parts.reduce((s, p) => s + p.count, 0);
   const join = <T extends Float64Array | Int32Array>(pick: (p: RawIntervals) => T, make: (n: number) => T): T => {
@@ -78,6 +81,7 @@ function typicalStep(utc: Float64Array): number {
  * @throws {InputError} for rows out of time order or an interval outside 1 s – 1 h.
  */
 export function checkIntervalSequence(raw: RawIntervals, fill: GapFill = 'none'): IntervalTable {
+  checkObjectArgument(raw, 'raw', 'raw intervals as a row reader gives them (createRowReader(...))', ['count', 'utcMs', 'rows', 'values']);
   const { utcMs: utc, rows } = raw;
   const backwards: number[] = [];
   for (let i = 1; i < raw.count && backwards.length < 10; i++) if (utc[i]! < utc[i - 1]!) backwards.push(i);

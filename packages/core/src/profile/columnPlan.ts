@@ -12,10 +12,11 @@ import { labellerOf, readPhaseTerm } from '../board/conventions/phaseNames.js';
 import { conventionsOf } from '../board/conventions/boardConventions.js';
 import type { Board, BoardLoad, PhaseId } from '../board/boardModel.js';
 import type { ComplexValue } from '../complex.js';
-import { InputError, inputIssue, type InputIssue } from '../errors.js';
+import { InputError, inputIssue, type InputIssue, quoteText } from '../errors.js';
 import type { DriverColumns, DriverSpec } from './batchNetwork.js';
 import { ownEntry } from '../_internal/ownEntry.js';
 import { assertBoardModel } from '../board/modelGuards.js';
+import { checkListArgument, checkNumberArgument, checkObjectArgument } from '../_internal/argumentChecks.js';
 
 export const QUANTITIES = ['kW', 'kvar', 'pf', 'A', 'x'] as const;
 export type Quantity = (typeof QUANTITIES)[number];
@@ -50,7 +51,7 @@ const HEADER = /^(.+?)\s*\[\s*([A-Za-z]+)\s*\]$/;
 /** "phase A [kW]" or, in IEC naming, "phase L1 [kW]" (either naming, whatever the board file uses). */
 const PHASE = /^phase\s+([ABC]|L[123])$/i;
 
-const where = (column: number, header: string) => `header, column ${column + 1} ("${header}")`;
+const where = (column: number, header: string) => `header, column ${column + 1} (${quoteText(header)})`;
 
 export interface ColumnPlanOptions {
   /** Named load sets (the board file's `profile.groups`). */
@@ -160,7 +161,7 @@ export function planTargets(header: readonly string[], ownLoads: number, resolve
       byName.set(name, target);
     }
     if (target.columns[quantity] !== undefined) {
-      issues.push(inputIssue('duplicate_column', at, `one "${name} [${quantity}]" column`, cell));
+      issues.push(inputIssue('duplicate_column', at, `one ${quoteText(`${name} [${quantity}]`)} column`, cell));
       return;
     }
     target.columns[quantity] = c;
@@ -172,14 +173,14 @@ export function planTargets(header: readonly string[], ownLoads: number, resolve
     const accepted = ACCEPTED_SETS.some((set) => set.length === given.length && set.every((q) => given.includes(q)));
     if (!accepted)
       issues.push(
-        inputIssue('bad_quantities', `header ("${name}")`, `one of these column sets per target: ${ACCEPTED_SETS.map((s) => s.map((q) => `[${q}]`).join('+')).join(', ')}`, given.map((q) => `[${q}]`).join('+')),
+        inputIssue('bad_quantities', `header (${quoteText(name)})`, `one of these column sets per target: ${ACCEPTED_SETS.map((s) => s.map((q) => `[${q}]`).join('+')).join(', ')}`, given.map((q) => `[${q}]`).join('+')),
       );
     if (t.columns.A !== undefined && !(t.kind === 'phase' || t.loads.every((l) => isPhaseToNeutral(loads[l]!)))) {
-      issues.push(inputIssue('bad_quantities', `header ("${name} [A]")`, 'current columns only for phases and phase-to-neutral loads (give kW or x for others)', name));
+      issues.push(inputIssue('bad_quantities', `header (${quoteText(`${name} [A]`)})`, 'current columns only for phases and phase-to-neutral loads (give kW or x for others)', name));
     }
     for (const l of t.loads) {
       const other = drivenBy.get(l);
-      if (other) issues.push(inputIssue('driven_twice', `header ("${name}")`, `each load driven by one column target; "${loads[l]!.name}" is also in "${other}"`, name));
+      if (other) issues.push(inputIssue('driven_twice', `header (${quoteText(name)})`, `each load driven by one column target; ${quoteText(loads[l]!.name)} is also in ${quoteText(other)}`, name));
       drivenBy.set(l, name);
     }
     targets.push({ name, kind: t.kind, loads: t.loads, columns: t.columns });
@@ -207,6 +208,7 @@ export const ratedPower = (load: BoardLoad): ComplexValue =>
  * Loads kept at rating get one constant driver at the end.
  */
 export function planDrivers(plan: ColumnPlan): DriverSpec[] {
+  checkObjectArgument(plan, 'plan', 'a column plan from planColumns(...)', ['board', 'targets']);
   const { board } = plan;
   const drivers: DriverSpec[] = plan.targets.map((t) => {
     if (t.columns.x !== undefined) return { name: t.name, loads: t.loads.map((l) => ({ load: l, coefficient: ratedPower(board.loads[l]!) })) };
@@ -232,6 +234,9 @@ export function planDrivers(plan: ColumnPlan): DriverSpec[] {
  * power = A × nominal line-to-neutral voltage.
  */
 export function driverColumns(plan: ColumnPlan, values: readonly Float64Array[], count: number): DriverColumns {
+  checkObjectArgument(plan, 'plan', 'a column plan from planColumns(...)', ['board', 'targets']);
+  checkListArgument(values, 'values', 'one Float64Array of interval values per data column', (x) => x instanceof Float64Array);
+  checkNumberArgument(count, 'count', 'a number of intervals: a whole number at least 0', (x) => Number.isInteger(x) && x >= 0);
   const re: Float64Array[] = [];
   const im: Float64Array[] = [];
   const vLN = plan.board.nominalLineToNeutralV;

@@ -17,6 +17,7 @@ import { foldDrivers, edgePowersAt, type BatchEdge, type DriverColumns, type Dri
 import { newIntervalState, referenceAtCentroid, resolveKernelOptions, type IntervalState, type KernelOptions } from './batchKernel.js';
 import { allocateFigures, recordInterval, type IntervalFigures } from './solveBatch.js';
 import { assertInstallationModel } from '../board/modelGuards.js';
+import { checkObjectArgument } from '../_internal/argumentChecks.js';
 
 /** An edge on one board (0 = main, i + 1 = subBoards[i]). */
 export interface InstallationEdge extends BatchEdge {
@@ -76,6 +77,7 @@ export interface InstallationKernel {
 type Incidence = { readonly branch: Int32Array; readonly sign: Float64Array };
 
 export function createInstallationKernel(net: InstallationBatchNetwork, options?: KernelOptions): InstallationKernel {
+  checkObjectArgument(net, 'net', 'an installation batch network from compileInstallationBatch(...)', ['installation', 'edges', 'coefficients']);
   const opts = resolveKernelOptions(options);
   const { installation } = net;
   const main = installation.main;

@@ -15,7 +15,7 @@
 import type { BoardLoad, Installation, PhaseId } from '../board/boardModel.js';
 import { labellerOf } from '../board/conventions/phaseNames.js';
 import { conventionsOf } from '../board/conventions/boardConventions.js';
-import { inputIssue, type InputIssue } from '../errors.js';
+import { inputIssue, type InputIssue, quoteText } from '../errors.js';
 import { bankPartIndices } from '../analysis/banksInServiceWords.js';
 import { meteredPhaseLoad, phaseTargetOf, planTargets, type ColumnPlan, type ColumnPlanOptions, type TargetResolver } from './columnPlan.js';
 import { ownEntry } from '../_internal/ownEntry.js';
@@ -78,10 +78,10 @@ export function ambiguousLoadIssue(installation: Installation, lookup: (name: st
     const alone = (candidate: string) => candidate !== name && lookup(candidate).length === 1 && lookup(candidate)[0] === l;
     const simple = [load, `${board}/${load}`].filter(alone);
     const ways = simple.length ? simple : [`${board}//${load}`].filter(alone);
-    const write = ways.length ? `write ${ways.map((w) => `"${w}"`).join(' or ')}` : 'no name reaches it alone';
-    return `load "${load}" on board "${board}" (${write})`;
+    const write = ways.length ? `write ${ways.map((w) => `${quoteText(w)}`).join(' or ')}` : 'no name reaches it alone';
+    return `load ${quoteText(load)} on board ${quoteText(board)} (${write})`;
   });
-  return inputIssue(code, path, `one load; "${name}" names ${found.length}: ${each.slice(0, -1).join(', ')} and ${each[each.length - 1]}`, name);
+  return inputIssue(code, path, `one load; ${quoteText(name)} names ${found.length}: ${each.slice(0, -1).join(', ')} and ${each[each.length - 1]}`, name);
 }
 
 /**
@@ -90,7 +90,7 @@ export function ambiguousLoadIssue(installation: Installation, lookup: (name: st
  */
 export function bankPartIssue(found: readonly number[], bankParts: ReadonlySet<number>, name: string, path: string, each: 'interval' | 'scenario'): InputIssue | null {
   if (!found.length || !found.every((l) => bankParts.has(l))) return null;
-  return inputIssue('bank_in_service', path, `a load that is not part of a capacitor bank the file lists in service (harmonics.banks): "${name}" is, and stays in service in every ${each} as listed`, name);
+  return inputIssue('bank_in_service', path, `a load that is not part of a capacitor bank the file lists in service (harmonics.banks): ${quoteText(name)} is, and stays in service in every ${each} as listed`, name);
 }
 
 function installationResolver(installation: Installation, groups: Readonly<Record<string, readonly string[]>>, boards: number[]): TargetResolver {

@@ -4,6 +4,7 @@ import { labellerOf } from '../board/conventions/phaseNames.js';
 import type { CapacitorDischarge } from '../correction/capacitorDischarge.js';
 import type { StepChannel } from './bankController.js';
 import { PROFILE_DEFAULTS } from './profileDefaults.js';
+import { checkNumberArgument } from '../_internal/argumentChecks.js';
 
 /** Cautions printed with every profile result. */
 export const PROFILE_CAUTIONS: readonly string[] = [
@@ -33,6 +34,7 @@ export function switchingWithinIntervalWords(intervalSeconds: number, delaySecon
  * the equipment centuries on.
  */
 export function contactorLifeWords(years: number | null, what = 'that'): string | null {
+  if (years !== null) checkNumberArgument(years, 'years', 'a number of years at least 0, or null', (x) => x >= 0);
   if (years === null) return null;
   const horizon = PROFILE_DEFAULTS.contactorLifeHorizonYears;
   return years > horizon ? `does not reach ${what} within ${horizon} years` : `reaches ${what} in ${years.toFixed(1)} years`;

@@ -3,10 +3,11 @@
  * records from its CSV parser into `push`). Every bad cell is reported with its
  * row and column; reading stops after MAX_ISSUES of them.
  */
-import { InputError, inputIssue, type InputIssue } from '../errors.js';
+import { InputError, inputIssue, type InputIssue, quoteText } from '../errors.js';
 import type { ColumnPlan } from './columnPlan.js';
 import { EARLY_YEAR_EXPECTED, parseTimestamp, TIMESTAMP_EXPECTED } from './intervalTimestamp.js';
 import { createZoneClock, type ZoneClock } from './zoneClock.js';
+import { checkObjectArgument } from '../_internal/argumentChecks.js';
 
 const MAX_ISSUES = 20;
 
@@ -38,7 +39,7 @@ export interface RowReaderOptions {
 }
 
 const cellPath = (plan: ColumnPlan, row: number, column: number) =>
-  `row ${row}, column ${column + 1} ("${column === 0 ? plan.timeHeader : plan.dataHeaders[column - 1]}")`;
+  `row ${row}, column ${column + 1} (${quoteText(column === 0 ? plan.timeHeader : (plan.dataHeaders[column - 1] ?? ''))})`;
 
 function fail(issues: InputIssue[]): never {
   throw new InputError(issues, 'the interval data cannot be read');
@@ -71,6 +72,7 @@ function checkValue(q: string, x: number): string | null {
 }
 
 export function createRowReader(plan: ColumnPlan, options: RowReaderOptions = {}): RowReader {
+  checkObjectArgument(plan, 'plan', 'a column plan from planColumns(...)', ['board', 'dataHeaders', 'targets']);
   const width = plan.dataHeaders.length + 1;
   const quantities = plan.dataHeaders.map(quantityOf);
   const clock: ZoneClock = createZoneClock(options.timeZone ?? 'UTC');

@@ -13,6 +13,8 @@ import type { Board, PhaseId, Terminal } from '../board/boardModel.js';
 import { compileBatchNetwork, edgeIndex, edgePowersAt, type BatchEdge, type DriverColumns, type DriverSpec } from './batchNetwork.js';
 import { allocateFigures, createBatchKernel, recordInterval, type BatchSolveOptions, type IntervalFigures } from './solveBatch.js';
 import { createBankController, isLinePair, type SwitchingSettings, type SwitchedStep, type StepChannel } from './bankController.js';
+import { checkObjectArgument } from '../_internal/argumentChecks.js';
+import { assertBoardModel } from '../board/modelGuards.js';
 
 export interface BankRun {
   readonly figures: IntervalFigures;
@@ -85,6 +87,8 @@ export interface SwitchBankInput {
 }
 
 export function simulateBank(input: SimulateBankInput): BankRun {
+  checkObjectArgument(input, 'input', 'a bank simulation input { board, drivers, columns, ... }', ['board', 'drivers', 'columns']);
+  assertBoardModel(input.board, 'input.board');
   const { board } = input;
   const figures = allocateFigures(input.columns.count, board.phases.length);
   return switchBank({ ...input, figures }, (extra) => {

@@ -9,6 +9,7 @@ import { closedFormBlocker, createClosedFormKernel } from './closedFormKernel.js
 import { createCompiledKernel } from './compiledKernel.js';
 import { isLinearClosedForm, solveLinearClosedForm } from './linearClosedForm.js';
 import { lineDeviationPercentOf } from '../analysis/unbalanceIndices.js';
+import { checkNumberArgument, checkObjectArgument } from '../_internal/argumentChecks.js';
 
 /** Per-interval figures, each a column of `count` values. */
 export interface IntervalFigures {
@@ -38,6 +39,8 @@ export const lineToLinePairs = (phases: number): readonly (readonly [number, num
   phases === 3 ? [[0, 1], [1, 2], [2, 0]] : phases === 2 ? [[0, 1]] : [];
 
 export function allocateFigures(count: number, phases: number): IntervalFigures {
+  checkNumberArgument(count, 'count', 'a number of intervals: a whole number at least 0', (x) => Number.isInteger(x) && x >= 0);
+  checkNumberArgument(phases, 'phases', "the board's number of phases: 1, 2 or 3", (x) => x === 1 || x === 2 || x === 3);
   const cols = (n = phases) => Array.from({ length: n }, () => new Float64Array(count));
   return {
     count,
@@ -108,6 +111,7 @@ export interface BatchSolveOptions extends KernelOptions {
 
 /** The kernel a board takes. */
 export function createBatchKernel(net: BatchNetwork, options: BatchSolveOptions = {}): BatchKernel {
+  checkObjectArgument(net, 'net', 'a batch network from compileBatchNetwork(...)', ['board', 'edges', 'coefficients']);
   const path = options.path ?? 'auto';
   if (path === 'nodal' || (path === 'auto' && closedFormBlocker(net))) return createCompiledKernel(net, options);
   return createClosedFormKernel(net, options);

@@ -4,7 +4,7 @@
  * over the same intervals with the summary after it.
  */
 import { VOLTAGE_UNBALANCE_LIMITS } from '../board/conventions/unbalanceLimits.js';
-import { InputError, inputIssue } from '../errors.js';
+import { InputError, inputIssue, quoteText } from '../errors.js';
 import type { Board } from '../board/boardModel.js';
 import { conventionsOf } from '../board/conventions/boardConventions.js';
 import type { PhaseNaming } from '../board/conventions/phaseNames.js';
@@ -242,7 +242,7 @@ export function studyProfile(input: ProfileStudyInput, options: ProfileStudyOpti
   const point = options.bank && !options.designedBank ? input.profile?.bank?.measuredAt : undefined;
   if (point !== undefined && point !== board.name)
     throw new InputError(
-      [inputIssue('not_applicable', 'profile.bank.measuredAt', `"${board.name}" (the board itself) on a board file; to measure at the origin, write the board as an installation file with this one board under boards:`, point)],
+      [inputIssue('not_applicable', 'profile.bank.measuredAt', `${quoteText(board.name)} (the board itself) on a board file; to measure at the origin, write the board as an installation file with this one board under boards:`, point)],
       'the point the bank\'s controller measures at does not fit a board file',
     );
   const withBank = bankOverProfile(

@@ -15,6 +15,7 @@
 import type { CapacitorDischarge } from '../correction/capacitorDischarge.js';
 import type { BankStep, ControllerSettings } from '../correction/correctionResult.js';
 import { isLinePair, type StepChannel, type SwitchedStep, type SwitchingSettings } from './bankController.js';
+import { checkListArgument, checkObjectArgument } from '../_internal/argumentChecks.js';
 
 export interface SwitchingFromBank {
   readonly steps: readonly SwitchedStep[];
@@ -47,6 +48,8 @@ function singleBranchChannel(branch: string): StepChannel | undefined {
 }
 
 export function switchingFromBank(steps: readonly BankStep[], controller: ControllerSettings): SwitchingFromBank {
+  checkListArgument(steps, 'steps', "a bank's steps (a selection's steps)", (x) => typeof x === 'object' && x !== null);
+  checkObjectArgument(controller, 'controller', "the bank's controller settings (a selection's controller)");
   const out: SwitchedStep[] = [];
   const fixed: SwitchedStep[] = [];
   const notSimulated: number[] = [];

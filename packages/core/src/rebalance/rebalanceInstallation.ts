@@ -11,7 +11,7 @@ import { labellerOf } from '../board/conventions/phaseNames.js';
 import type { Installation } from '../board/boardModel.js';
 import type { ConnectionSpec } from '../board/boardSchema.js';
 import { NAME_CONTROLS_MESSAGE, NAME_WITHOUT_CONTROLS } from '../board/boardRanges.js';
-import { InputError, inputIssue } from '../errors.js';
+import { InputError, inputIssue, quoteText } from '../errors.js';
 import { parseOptions } from '../_internal/zodIssues.js';
 import { assertFiniteResult } from '../analysis/assertFiniteResult.js';
 import { analyseSolution } from '../analysis/analyseSolution.js';
@@ -237,7 +237,7 @@ function checkCapacity(built: BuiltProblem, study: ResolvedRebalance, tie: numbe
       inputIssue(
         'capacity_unreachable',
         path,
-        `a capacity of at least ${layout.balancedA.toFixed(1)} A on some line${several ? ` at "${layout.board}"` : ''} in "${layout.name}": spread perfectly, the load still draws ${layout.balancedA.toFixed(1)} A per line`,
+        `a capacity of at least ${layout.balancedA.toFixed(1)} A on some line${several ? ` at ${quoteText(layout.board)}` : ''} in ${quoteText(layout.name)}: spread perfectly, the load still draws ${layout.balancedA.toFixed(1)} A per line`,
         best,
       ),
     ];
@@ -249,12 +249,12 @@ function checkCapacity(built: BuiltProblem, study: ResolvedRebalance, tie: numbe
       if (!(bounds[j]! > cap + tie)) return [];
       const line = ['A', 'B', 'C'][k];
       const fixed = built.fixedLineA[c]![k]!;
-      const at = several ? ` at "${layout.board}"` : '';
+      const at = several ? ` at ${quoteText(layout.board)}` : '';
       return [
         inputIssue(
           'capacity_unreachable',
           study.capacityPaths[k]!,
-          `a capacity of at least ${bounds[j]!.toFixed(1)} A for line ${line}${at} in "${layout.name}": the circuits that cannot move draw ${fixed.toFixed(1)} A on it and no spread of the others brings it lower`,
+          `a capacity of at least ${bounds[j]!.toFixed(1)} A for line ${line}${at} in ${quoteText(layout.name)}: the circuits that cannot move draw ${fixed.toFixed(1)} A on it and no spread of the others brings it lower`,
           cap,
         ),
       ];

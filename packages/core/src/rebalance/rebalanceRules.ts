@@ -6,7 +6,7 @@
  */
 import type { Board } from '../board/boardModel.js';
 import type { ConnectionSpec } from '../board/boardSchema.js';
-import { InputError, inputIssue, namingArgument, type InputIssue } from '../errors.js';
+import { InputError, inputIssue, namingArgument, type InputIssue, quoteText } from '../errors.js';
 import { inputIssuesFromZod } from '../_internal/zodIssues.js';
 import { complex, type ComplexValue } from '../complex.js';
 import type { ProfileSpec } from '../profile/profileSpec.js';
@@ -18,6 +18,7 @@ import { conventionsOf } from '../board/conventions/boardConventions.js';
 import { labellerOf } from '../board/conventions/phaseNames.js';
 import { inFileNaming } from '../board/conventions/issueNaming.js';
 import { ownEntry } from '../_internal/ownEntry.js';
+import { checkObjectArgument } from '../_internal/argumentChecks.js';
 
 export const LINE_TO_NEUTRAL: readonly ConnectionSpec[] = ['A-N', 'B-N', 'C-N'];
 export const LINE_TO_LINE: readonly ConnectionSpec[] = ['A-B', 'B-C', 'C-A'];
@@ -89,12 +90,12 @@ function circuitFinder(tree: RebalanceTree) {
       const flat = qualified.get(`${board}/${name}`);
       if (flat !== undefined) return flat;
       if (!tree.names.includes(board)) return inputIssue('unknown_board', path.replace(/circuit$/, 'board'), `one of ${tree.names.join(', ')}`, board);
-      return inputIssue('unknown_circuit', path, `the name of a circuit on board "${board}"`, name);
+      return inputIssue('unknown_circuit', path, `the name of a circuit on board ${quoteText(board)}`, name);
     }
     const found = byName.get(name);
     if (found?.length === 1) return found[0]!;
     if (found && found.length > 1)
-      return inputIssue('ambiguous_circuit', path, `one circuit: "${name}" is on boards ${found.map((f) => tree.names[tree.circuits[f]!.board]).join(', ')}; name the board too`, name);
+      return inputIssue('ambiguous_circuit', path, `one circuit: ${quoteText(name)} is on boards ${found.map((f) => tree.names[tree.circuits[f]!.board]).join(', ')}; name the board too`, name);
     const flat = qualified.get(name);
     return flat ?? inputIssue('unknown_circuit', path, accepted, name);
   };
@@ -148,6 +149,7 @@ function pinIssues(spec: RebalanceSpec, tree: RebalanceTree, pinned: Map<number,
 
 /** The profile section's scenarios as load conditions: each weighted by its hours (or weight), groups expanded. */
 export function conditionsFromScenarios(profile: ProfileSpec): LoadConditionSpec[] {
+  checkObjectArgument(profile, 'profile', "a board file's profile section as parseBoard gives it (spec.profile)");
   const groups = profile.groups ?? {};
   return (profile.scenarios ?? []).map((s) => {
     // No prototype: a circuit called `constructor` or `toString` is an entry like any other.
@@ -208,7 +210,7 @@ function capacityIssues(spec: RebalanceSpec, board: Board, capacity: number[], p
 function boardIssues(spec: RebalanceSpec, tree: RebalanceTree, movable: boolean[], measured: number[]): InputIssue[] {
   const issues: InputIssue[] = [];
   const count = tree.boards.length;
-  const accepted = `one of ${tree.names.map((n) => `"${n}"`).join(', ')}`;
+  const accepted = `one of ${tree.names.map((n) => `${quoteText(n)}`).join(', ')}`;
   movable.push(...tree.boards.map(() => spec.boards === undefined));
   (spec.boards ?? []).forEach((name, n) => {
     const b = tree.names.indexOf(name);

@@ -5,6 +5,7 @@ import { percentBesideBand } from '../board/conventions/voltageBesideBand.js';
 import type { VoltageCheck } from '../analysis/voltageCheck.js';
 import { BANKS_IN_SERVICE_BASIS } from '../analysis/banksInServiceWords.js';
 import { groupDigits } from '../_internal/groupDigits.js';
+import { quoteText } from '../errors.js';
 
 const VERDICT_WORDS: Record<VoltageCheck['verdict'], string> = {
   within: 'within',
@@ -53,7 +54,7 @@ export const REBALANCE_NOTES = {
     const one = moved.length === 1;
     const numbers = !one || moved[0]!.positions > 1;
     const positionWord = (several: boolean) => (several ? 'positions' : 'position');
-    return `${moved.map((m) => `"${m.name}"${m.board ? ` on "${m.board}"` : ''} (circuit ${m.circuit}${m.positions > 1 ? `, ${m.positions} poles` : ''})`).join(', ')} ${one ? (numbers ? 'takes breaker positions' : 'takes a breaker position') : 'take breaker positions'} on ${one ? `its new line${moved[0]!.positions > 1 ? 's' : ''}` : 'their new lines'}: the usual panel numbering ties each circuit number to a line, so ${one ? 'it needs' : 'they need'} the number${numbers ? 's' : ''} of the new ${positionWord(numbers)}. A file rewritten with these moves keeps the old number${numbers ? 's' : ''}; re-assign ${numbers ? 'them' : 'it'} there and on the circuit chart.`;
+    return `${moved.map((m) => `${quoteText(m.name)}${m.board ? ` on ${quoteText(m.board)}` : ''} (circuit ${m.circuit}${m.positions > 1 ? `, ${m.positions} poles` : ''})`).join(', ')} ${one ? (numbers ? 'takes breaker positions' : 'takes a breaker position') : 'take breaker positions'} on ${one ? `its new line${moved[0]!.positions > 1 ? 's' : ''}` : 'their new lines'}: the usual panel numbering ties each circuit number to a line, so ${one ? 'it needs' : 'they need'} the number${numbers ? 's' : ''} of the new ${positionWord(numbers)}. A file rewritten with these moves keeps the old number${numbers ? 's' : ''}; re-assign ${numbers ? 'them' : 'it'} there and on the circuit chart.`;
   },
   oneLine: 'A single-phase supply has one line: every circuit is on it and there is no other to move one to, so there is nothing to rebalance.',
   /** Loads with harmonic spectra: the neutral figures are the fundamental's; the rms from the harmonic study, where it ran. */
@@ -68,7 +69,7 @@ export const REBALANCE_NOTES = {
       const load = n.before.loadingPercent !== null && n.after.loadingPercent !== null && n.ratingA !== null
         ? ` (${n.before.loadingPercent.toFixed(0)} % → ${n.after.loadingPercent.toFixed(0)} % of its ${n.ratingA.toFixed(0)} A rating${n.after.loadingPercent > 100 ? (n.before.loadingPercent > 100 ? ': still above it' : ': above it') : ''})`
         : '';
-      return `${withBoard ? `"${n.board}" ` : ''}${n.before.rmsA.toFixed(1)} → ${n.after.rmsA.toFixed(1)} A${load}`;
+      return `${withBoard ? `${quoteText(n.board)} ` : ''}${n.before.rmsA.toFixed(1)} → ${n.after.rmsA.toFixed(1)} A${load}`;
     });
     return `${head} The harmonic study at the file's own loads gives the neutral's rms now → after: ${each.join('; ')}.`;
   },
@@ -89,12 +90,12 @@ export const REBALANCE_NOTES = {
   capacityNotMet: (moveLimit: number, provenImpossible: boolean, excesses: readonly string[]) =>
     `${provenImpossible ? 'No assignment' : 'No assignment found'} with at most ${moveLimit} move${moveLimit === 1 ? '' : 's'} keeps every line within its capacity${provenImpossible ? ' (proven by the lower bound)' : ''}; this answer exceeds it least: ${excesses.join('; ')}.`,
   excess: (e: { board: string; condition: string; line: PhaseLabel; currentA: number; capacityA: number; overA: number }, withBoard: boolean) =>
-    `line ${e.line}${withBoard ? ` at "${e.board}"` : ''} in "${e.condition}" carries ${e.currentA.toFixed(1)} A, ${e.overA.toFixed(1)} A over its ${e.capacityA.toFixed(0)} A capacity`,
+    `line ${e.line}${withBoard ? ` at ${quoteText(e.board)}` : ''} in ${quoteText(e.condition)} carries ${e.currentA.toFixed(1)} A, ${e.overA.toFixed(1)} A over its ${e.capacityA.toFixed(0)} A capacity`,
   overCapacityNow: (board: string | null, line: PhaseLabel, amps: number, capacity: number, condition: string) =>
-    `The present wiring puts ${amps.toFixed(1)} A on line ${line}${board ? ` at "${board}"` : ''} in "${condition}", above its ${capacity.toFixed(0)} A capacity.`,
+    `The present wiring puts ${amps.toFixed(1)} A on line ${line}${board ? ` at ${quoteText(board)}` : ''} in ${quoteText(condition)}, above its ${capacity.toFixed(0)} A capacity.`,
   /** A board outside its own voltage limits after the moves or now (`board` null on a one-board file, `condition` null with one condition). */
   voltagesOutside: (v: { limits: VoltageCheck['limits']; before: VoltageCheck; after: VoltageCheck }, board: string | null, condition: string | null, moved: boolean) => {
-    const where = `${board ? ` at "${board}"` : ''}${condition ? ` in "${condition}"` : ''}`;
+    const where = `${board ? ` at ${quoteText(board)}` : ''}${condition ? ` in ${quoteText(condition)}` : ''}`;
     const limits = `its voltage limits ${bandWords(v.limits)} (${v.limits.preset})`;
     if (!moved) return `The voltages${where} are ${VERDICT_WORDS[v.before.verdict]} ${limits}: ${extremesWords(v.before)}.`;
     return `After the moves the voltages${where} are ${VERDICT_WORDS[v.after.verdict]} ${limits}: ${extremesWords(v.after)}; now ${VERDICT_WORDS[v.before.verdict]} (${extremesWords(v.before)}).`;

@@ -9,7 +9,7 @@ import type { CircuitMove } from './rebalanceResult.js';
 import { readPhaseTerm, spellIn } from '../board/conventions/phaseNames.js';
 import { assertText } from '../board/modelGuards.js';
 import { CONNECTIONS } from '../board/boardRanges.js';
-import { InputError, inputIssue } from '../errors.js';
+import { InputError, inputIssue, quoteText } from '../errors.js';
 
 /** The new connection in the naming the file wrote the old one in (L1-N for a file in L1/L2/L3). */
 const asWritten = (old: unknown, to: string) => spellIn((typeof old === 'string' && readPhaseTerm(old)?.naming) || 'A/B/C', to);
@@ -21,7 +21,7 @@ const HEADING = 'rewriteBoardText: the moves do not fit this text';
 /** A move that names a load the text does not have at that place: the report is of another file. */
 const mismatch = (m: Move, k: number, found: unknown) =>
   new InputError(
-    [inputIssue('not_in_text', `moves[${k}]`, `load ${m.listPosition}${m.board ? ` of board "${m.board}"` : ''} to be "${m.name}", as in the file the report was made from`, found)],
+    [inputIssue('not_in_text', `moves[${k}]`, `load ${m.listPosition}${m.board ? ` of board ${quoteText(m.board)}` : ''} to be ${quoteText(m.name)}, as in the file the report was made from`, found)],
     HEADING,
   );
 

@@ -1,3 +1,4 @@
+import { checkListArgument, checkObjectArgument } from '../_internal/argumentChecks.js';
 /**
  * SVG charts of a profile, as text: currents over time, power factor before
  * and after a bank, and load-duration curves. Pure functions; the CLI writes
@@ -78,6 +79,8 @@ function legend(series: readonly ChartSeries[], w: number, h: number): string[] 
 
 /** Values over time, one band or line per series. */
 export function renderTimeChart(input: TimeChartInput): string {
+  checkObjectArgument(input, 'input', 'a chart input { series, ... }', ['series']);
+  checkListArgument(input.series, 'input.series', 'a list of series, each with its values');
   const w = input.width ?? 900;
   const h = input.height ?? 320;
   const n = input.series[0]?.values.length ?? 0;
@@ -161,6 +164,8 @@ export interface DurationChartInput {
 
 /** Load-duration curves: each series sorted from highest to lowest against the hours it is exceeded. */
 export function renderDurationChart(input: DurationChartInput): string {
+  checkObjectArgument(input, 'input', 'a chart input { series, ... }', ['series']);
+  checkListArgument(input.series, 'input.series', 'a list of series, each with its values');
   const w = input.width ?? 900;
   const h = input.height ?? 320;
   const cols = w - MARGIN.left - MARGIN.right;

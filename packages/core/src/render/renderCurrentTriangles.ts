@@ -11,6 +11,7 @@ import { phasorScale } from './phasorScale.js';
 import { arrow, scaleBar, subscripted, type Point } from './svgShapes.js';
 import { attrs, coord, escapeXml, fixed, sig3 } from './svgText.js';
 import { assertBoardResult } from '../analysis/resultGuards.js';
+import { checkObjectArgument } from '../_internal/argumentChecks.js';
 
 export interface LineCurrentParts {
   /** P/|V|, A (negative when the line exports). */
@@ -25,6 +26,7 @@ export interface LineCurrentParts {
 
 /** A line current split along and across its own line-to-neutral voltage. */
 export function lineCurrentParts(p: PhaseReading): LineCurrentParts {
+  checkObjectArgument(p, 'p', 'a phase reading of a solved board (result.phases[i])', ['voltage', 'current', 'kW', 'kvar']);
   const v = p.voltage.magnitude;
   return v > 0
     ? { activeA: (1000 * p.kW) / v, reactiveA: (1000 * p.kvar) / v, magnitudeA: p.current.magnitude, pf: p.pf, sense: p.sense }

@@ -7,6 +7,7 @@
 import type { ResonanceScan } from '../harmonics/harmonicsResult.js';
 import { GRID_COLOUR, INK, MUTED_INK } from './palette.js';
 import { attrs, coord, escapeXml, sig3 } from './svgText.js';
+import { checkObjectArgument } from '../_internal/argumentChecks.js';
 
 export const SCAN_LAYOUT = { width: 640, plotTop: 52, plotHeight: 230, left: 62, right: 20 } as const;
 
@@ -35,6 +36,7 @@ function tickStep(span: number, count: number): number {
  * @returns SVG text; the plot area carries `data-x-range` and `data-y-range` (order and ohm at its edges)
  */
 export function renderImpedanceScan(scan: ResonanceScan, title = 'Impedance seen by harmonic currents, by bank state'): string {
+  checkObjectArgument(scan, 'scan', "a resonance scan (a harmonics report's scan)", ['combinations', 'orders']);
   const { width, plotTop, plotHeight, left, right } = SCAN_LAYOUT;
   // States with equal kvar on give the same curve (equal steps): draw each level once.
   const states = scan.combinations.filter((c, k, all) => all.findIndex((o) => Math.abs(o.capacitorKvar - c.capacitorKvar) < 1e-6) === k).slice(0, SERIES_STYLE.length);

@@ -6,6 +6,7 @@
  * needs no second spelling; `conventions.phaseLabels` in a result maps them.
  */
 import type { PhaseId } from '../systemTopology.js';
+import { checkWordArgument } from '../../_internal/argumentChecks.js';
 
 export const PHASE_NAMINGS = ['A/B/C', 'L1/L2/L3'] as const;
 export type PhaseNaming = (typeof PHASE_NAMINGS)[number];
@@ -54,8 +55,10 @@ export function spellIn(naming: PhaseNaming, term: string): string {
 export const phaseLabel = (naming: PhaseNaming, phase: PhaseId): string => (naming === 'L1/L2/L3' ? NUMBERED[phase] : phase);
 
 /** The labels of every phase, for results (JSON keys stay A/B/C). */
-export const phaseLabels = (naming: PhaseNaming): Readonly<Record<PhaseId, string>> =>
-  naming === 'L1/L2/L3' ? NUMBERED : { A: 'A', B: 'B', C: 'C' };
+export function phaseLabels(naming: PhaseNaming): Readonly<Record<PhaseId, string>> {
+  checkWordArgument(naming, 'naming', PHASE_NAMINGS);
+  return naming === 'L1/L2/L3' ? NUMBERED : { A: 'A', B: 'B', C: 'C' };
+}
 
 /**
  * A phase, line pair, branch or connection as a report shows it. Only `labelIn` makes one, so a
@@ -75,7 +78,8 @@ export function labelIn(naming: PhaseNaming, term: string): PhaseLabel {
 
 /** The labeller of one naming: what a study hands its wording (`label(p.phase)`, `phases.map(label)`). */
 export type PhaseLabeller = (term: string) => PhaseLabel;
-export const labellerOf =
-  (naming: PhaseNaming): PhaseLabeller =>
-  (term) =>
-    labelIn(naming, term);
+export function labellerOf(naming: PhaseNaming): PhaseLabeller {
+  // Checked once here; the labeller it returns runs per row, unchecked.
+  checkWordArgument(naming, 'naming', PHASE_NAMINGS);
+  return (term) => labelIn(naming, term);
+}

@@ -12,6 +12,7 @@
  */
 import type { SystemKind } from '../boardSchema.js';
 import type { VoltageNotation } from './voltageNotation.js';
+import { checkObjectArgument } from '../../_internal/argumentChecks.js';
 
 export const REGIONS = ['iec', 'north-america'] as const;
 export type Region = (typeof REGIONS)[number];
@@ -23,6 +24,7 @@ export type RegionBasis = 'file' | 'notation' | 'split-phase' | 'frequency';
 const NORTH_AMERICAN_STAR_LN: readonly number[] = [120, 277, 347];
 
 export function inferRegion(input: { system: SystemKind; frequencyHz: number; notation?: VoltageNotation | null }): { region: Region; basis: RegionBasis } {
+  checkObjectArgument(input, 'input', 'a supply { system, frequencyHz, notation? }', ['system', 'frequencyHz']);
   const n = input.notation;
   if (n) return { region: n.star || n.system === 'split-phase' || NORTH_AMERICAN_STAR_LN.includes(n.lineToNeutralV) ? 'north-america' : 'iec', basis: 'notation' };
   if (input.system === 'split-phase') return { region: 'north-america', basis: 'split-phase' };

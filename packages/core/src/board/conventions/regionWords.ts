@@ -6,7 +6,9 @@
  * star, grounding and bonding. Every region-specific sentence of a board report is here.
  */
 import type { SystemKind } from '../boardSchema.js';
-import type { Region } from './region.js';
+import { REGIONS, type Region } from './region.js';
+import { checkWordArgument } from '../../_internal/argumentChecks.js';
+import { SYSTEMS } from '../boardRanges.js';
 
 export interface RegionWords {
   /** The point the source's phase voltages are measured from: "the source star point", "the transformer center tap". */
@@ -15,6 +17,8 @@ export interface RegionWords {
   readonly neutralConductor: string;
   /** What the phases of the board are called in a sentence: "phases", or the "legs" of a split-phase service. */
   readonly phasesWord: string;
+  /** A star connection (a bank's, a load's) and its common point: "star" (IEC 60050), "wye" (NEC). Only words: file values stay `star-bank`, `ABC-star`. */
+  readonly starWord: StarWord;
   /** Where a discharged capacitor's terminals are shorted to: "earth" (IEC), "ground" (NEC). */
   readonly groundWord: 'earth' | 'ground';
   /** Cautions shown with a broken-neutral study. */
@@ -40,16 +44,24 @@ const northAmericanCautions = (reach: string): readonly string[] => [
   'Never switch, fuse or open the grounded conductor (neutral) on its own (NEC 240.22, from memory); inspect neutral terminations at the service, the meter base and the transformer regularly.',
 ];
 
+export type StarWord = 'star' | 'wye';
+
+/** The region's word for a star connection, where nothing else of the region's wording is needed. */
+export const starWordOf = (region: Region): StarWord => regionWords(region, 'three-phase-4wire').starWord;
+
 export function regionWords(region: Region, system: SystemKind): RegionWords {
+  checkWordArgument(region, 'region', REGIONS);
+  checkWordArgument(system, 'system', SYSTEMS);
   const split = system === 'split-phase';
   if (region === 'north-america')
     return {
       sourceNeutralPoint: split ? 'the transformer center tap' : 'the source wye point',
       neutralConductor: 'grounded conductor (neutral)',
       phasesWord: split ? 'leg' : 'phases',
+      starWord: 'wye',
       groundWord: 'ground',
       openNeutralCautions: northAmericanCautions(UP_TO_LINE_TO_LINE(split ? 'leg' : 'phases')),
       openNeutralCautionsReaching: northAmericanCautions,
     };
-  return { sourceNeutralPoint: 'the source star point', neutralConductor: 'neutral', phasesWord: 'phases', groundWord: 'earth', openNeutralCautions: IEC_OPEN_NEUTRAL_CAUTIONS, openNeutralCautionsReaching: iecOpenNeutralCautions };
+  return { sourceNeutralPoint: 'the source star point', neutralConductor: 'neutral', phasesWord: 'phases', starWord: 'star', groundWord: 'earth', openNeutralCautions: IEC_OPEN_NEUTRAL_CAUTIONS, openNeutralCautionsReaching: iecOpenNeutralCautions };
 }

@@ -8,6 +8,7 @@
  *    NEMA MG 1 uses the same index for motor derating.
  */
 import type { Region } from './region.js';
+import { checkObjectArgument } from '../../_internal/argumentChecks.js';
 
 export interface VoltageUnbalanceLimit {
   /** Which figure the limit judges: |V2|/|V1|, or the line-to-line deviation from the average. */
@@ -33,5 +34,8 @@ export const VOLTAGE_UNBALANCE_LIMITS: Readonly<Record<Region, VoltageUnbalanceL
 };
 
 /** The figure a limit judges, from a board's two indices. */
-export const unbalanceFigure = (limit: VoltageUnbalanceLimit, figures: { readonly voltageFactorPercent: number; readonly lineVoltageRatePercent: number }): number =>
-  limit.index === 'negative-sequence' ? figures.voltageFactorPercent : figures.lineVoltageRatePercent;
+export function unbalanceFigure(limit: VoltageUnbalanceLimit, figures: { readonly voltageFactorPercent: number; readonly lineVoltageRatePercent: number }): number {
+  checkObjectArgument(limit, 'limit', "a voltage unbalance limit (a board's conventions.unbalanceLimit)", ['index']);
+  checkObjectArgument(figures, 'figures', 'the unbalance figures { voltageFactorPercent, lineVoltageRatePercent } (a result\'s unbalance)', ['voltageFactorPercent', 'lineVoltageRatePercent']);
+  return limit.index === 'negative-sequence' ? figures.voltageFactorPercent : figures.lineVoltageRatePercent;
+}

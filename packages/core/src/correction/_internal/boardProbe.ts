@@ -16,6 +16,7 @@ import { REFERENCE } from '../../network/networkTopology.js';
 import { abs, type ComplexValue } from '../../complex.js';
 import type { MeteringPlace } from '../meteringPoint.js';
 import { conventionsOf } from '../../board/conventions/boardConventions.js';
+import { starWordOf } from '../../board/conventions/regionWords.js';
 import { RememberedStates } from './rememberedStates.js';
 import { addCorrectionEquipment, cleanSusceptance, equipmentGroups, equipmentPower, susceptanceFromKvar, type BranchSlot, type EquipmentGroup } from '../equipment.js';
 
@@ -59,13 +60,14 @@ export function createProbe(board: Board, slots: readonly BranchSlot[], name: st
   const base = meter ? meter.inFrame(board) : board;
   const solve = { ...PROBE_SOLVE, ...solveOptions };
   let count = 0;
-  const naming = conventionsOf(board).phaseNames;
+  const { phaseNames: naming, region } = conventionsOf(board);
+  const star = starWordOf(region);
   const groups = (kvar: readonly number[]) =>
     equipmentGroups(
       name,
       slots,
       kvar.map((q, i) => susceptanceFromKvar(q, slots[i]!.vNominal)),
-      { naming },
+      { naming, star },
     );
   const solveTrial = trialSolver(base, slots, groups, solve, meter);
   // A trial's solve depends on its outputs alone (every solve starts from the same state), so a

@@ -4,6 +4,7 @@
  */
 import type { Board } from '../../board/boardModel.js';
 import { arrangementNames } from '../correctionWording.js';
+import { conventionsOf } from '../../board/conventions/boardConventions.js';
 import type { SolveOptions } from '../../network/solveNetwork.js';
 import { judgeTarget, type BoardTargetDefinition, type ResolvedTarget } from '../correctionTarget.js';
 import { lineBands } from './lineBands.js';
@@ -35,7 +36,7 @@ export interface ResolvedBankOptions {
 
 export function sizeBank(board: Board, arrangement: BankSizing['arrangement'], slots: readonly BranchSlot[], options: ResolvedBankOptions): BankSizing {
   const { target } = options;
-  const name = arrangementNames(board.system)[arrangement];
+  const name = arrangementNames(board.system, conventionsOf(board).region)[arrangement];
   const floating = slots.some((s) => s.to === 'star');
   // The loops run on `probe`; a floating star is sized as its equivalent delta (see floatingStar.ts).
   // Where the target is measured: the board itself, or a point the feeders lead up to (meteringPoint.ts).

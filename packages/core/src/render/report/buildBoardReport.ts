@@ -17,7 +17,8 @@ import type { ReportDocument, ReportSection } from './reportDocument.js';
 import { installationSection, openNeutralSection, resultsSection, scheduleSection } from './boardSections.js';
 import { correctionSection, nothingToAdd, resonanceSection } from './correctionSection.js';
 import { labelIn } from '../../board/conventions/phaseNames.js';
-import { BOARD_STANDARDS, CORRECTION_ASSUMPTIONS, CORRECTION_STANDARDS, modelAssumptions, THREE_PHASE_STANDARDS } from './reportWording.js';
+import { starWordOf } from '../../board/conventions/regionWords.js';
+import { BOARD_STANDARDS, CORRECTION_ASSUMPTIONS, correctionStandards, modelAssumptions, THREE_PHASE_STANDARDS } from './reportWording.js';
 import { assertBoardResult } from '../../analysis/resultGuards.js';
 import { argumentError, isObject } from '../../board/modelGuards.js';
 
@@ -73,7 +74,7 @@ export function closingSections(input: ClosingInput): ReportSection[] {
   const standards = [
     ...BOARD_STANDARDS,
     ...(input.results.some((r) => r.sequences) ? THREE_PHASE_STANDARDS : []),
-    ...(correction ? CORRECTION_STANDARDS : []),
+    ...(correction ? correctionStandards(starWordOf(first?.conventions.region ?? 'iec')) : []),
     ...(harmonics ? harmonicsStandards([...(harmonics.voltageDistortion ? [harmonics.voltageDistortion.basis] : []), ...(harmonics.boards ?? []).map((b) => b.voltageDistortion.basis)]) : []),
   ];
   const cautions = [...new Set([...(correction?.cautions ?? []), ...(harmonics?.cautions ?? []), ...(handCheck?.cautions ?? []), ...input.results.flatMap((r) => r.cautions)])];
@@ -118,7 +119,7 @@ export function buildBoardReport(input: BoardReportInput): ReportDocument {
     sections.push(correctionSection(correction, comparison));
     const resonance = idle ? null : resonanceSection(correction);
     if (resonance) sections.push(resonance);
-  } else if (comparison) sections.push(correctionComparisonSection(comparison, result.board.system));
+  } else if (comparison) sections.push(correctionComparisonSection(comparison, result.board.system, result.conventions.region));
   if (input.harmonics) placeSection(sections, harmonicsSection(input.harmonics));
   if (input.handCheck) placeSection(sections, handCheckSection(input.handCheck.result, input.handCheck.triangles, result.conventions.phaseNames));
   for (const extra of input.studySections ?? []) placeSection(sections, extra);

@@ -91,7 +91,7 @@ export function buildInstallationReport(input: InstallationReportInput): ReportD
     if (resonance) sections.push(atBoard(resonance, correction.board));
     // Nothing added: every board's before → after would read "x → x".
     if (!idle) sections.push(installationCorrectionSection(correction.effect));
-  } else if (compared) sections.push(banks(atBoard(correctionComparisonSection(compared.comparison, input.result.installation.system), compared.board)));
+  } else if (compared) sections.push(banks(atBoard(correctionComparisonSection(compared.comparison, input.result.installation.system, input.result.boards[0]!.result.conventions.region), compared.board)));
   const harmonics = input.harmonics ?? null;
   if (harmonics) {
     // The overview takes the place of a resonance estimate; the boards' sections follow it.

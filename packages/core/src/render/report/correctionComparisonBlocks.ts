@@ -9,6 +9,7 @@
 import type { CorrectionComparison } from '../../correction/compareCorrections.js';
 import type { HarmonicComparison } from '../../harmonics/correctWithHarmonics.js';
 import { arrangementNames } from '../../correction/correctionWording.js';
+import type { Region } from '../../board/conventions/region.js';
 import { fixed } from '../svgText.js';
 import type { ReportBlock, ReportSection } from './reportDocument.js';
 
@@ -25,10 +26,13 @@ const capitalised = (text: string) => text.charAt(0).toUpperCase() + text.slice(
 /** A reason may end its own sentence (the harmonic check's does); the paragraph adds the stop. */
 const withoutStop = (text: string) => text.replace(/\.$/, '');
 
-/** @param system the board's system: star and delta name nothing on a split-phase or single-phase board */
-export function correctionComparisonBlocks(c: CorrectionComparison | HarmonicComparison, system: string): ReportBlock[] {
+/**
+ * @param system the board's system: star and delta name nothing on a split-phase or single-phase board
+ * @param region the board's region: its word for star (wye in North America)
+ */
+export function correctionComparisonBlocks(c: CorrectionComparison | HarmonicComparison, system: string, region: Region): ReportBlock[] {
   const dash = '—';
-  const names = arrangementNames(system);
+  const names = arrangementNames(system, region);
   const checked = 'harmonics' in c ? c.harmonics : null;
   // The variant shown for an arrangement: the one its harmonic check chose, else the plain bank (none passes).
   const variantOf = (o: CorrectionComparison['outcomes'][number]) => {
@@ -84,6 +88,6 @@ export function correctionComparisonBlocks(c: CorrectionComparison | HarmonicCom
 }
 
 /** The section when no arrangement could be studied: the comparison alone. */
-export function correctionComparisonSection(c: CorrectionComparison, system: string): ReportSection {
-  return { id: 'correction', title: 'Correction recommendation', blocks: correctionComparisonBlocks(c, system) };
+export function correctionComparisonSection(c: CorrectionComparison, system: string, region: Region): ReportSection {
+  return { id: 'correction', title: 'Correction recommendation', blocks: correctionComparisonBlocks(c, system, region) };
 }

@@ -15,16 +15,21 @@ import { renderCurrentTriangles } from '../renderCurrentTriangles.js';
 import type { ReportBlock, ReportSection } from './reportDocument.js';
 import { CHARACTERISTIC_ORDERS, RESONANCE_NEAR_FRACTION } from './reportWording.js';
 import { labellerOf } from '../../board/conventions/phaseNames.js';
+import { starWordOf, type StarWord } from '../../board/conventions/regionWords.js';
 
-const ARRANGEMENT_WORDS: Readonly<Record<string, string>> = {
-  'star-bank': 'capacitor bank in star',
+/** A three-phase board's arrangements, star in the region's word (wye in North America). */
+const arrangementWordsIn = (star: StarWord): Readonly<Record<string, string>> => ({
+  'star-bank': `capacitor bank in ${star}`,
   'delta-bank': 'capacitor bank in delta',
-  'balancing-compensator': 'balancing compensator (delta and star branches)',
-};
+  'balancing-compensator': `balancing compensator (delta and ${star} branches)`,
+});
 /** Where star and delta name nothing (a split-phase or single-phase board), the board's own words. */
 const arrangementWords = (report: CorrectionReport): string => {
-  const system = report.verification.before.board.system;
-  return system === 'three-phase-4wire' || system === 'three-phase-3wire' ? (ARRANGEMENT_WORDS[report.arrangement] ?? report.arrangement) : arrangementDescriptions(system)[report.arrangement];
+  const { board, conventions } = report.verification.before;
+  const system = board.system;
+  return system === 'three-phase-4wire' || system === 'three-phase-3wire'
+    ? (arrangementWordsIn(starWordOf(conventions.region))[report.arrangement] ?? report.arrangement)
+    : arrangementDescriptions(system, conventions.region)[report.arrangement];
 };
 
 /** Losses before → after, the change worded by its sign ("saves", "adds") so a negative saving never reads as one. */
@@ -110,7 +115,7 @@ export function nothingToAdd(report: CorrectionReport | null, comparison: Correc
 function nothingToAddSection(report: CorrectionReport, comparison: CorrectionComparison | null): ReportSection {
   const v = report.verification;
   const label = labellerOf(v.before.conventions.phaseNames);
-  const names = arrangementNames(v.before.board.system);
+  const names = arrangementNames(v.before.board.system, v.before.conventions.region);
   const studied = comparison ? comparison.outcomes.filter((o) => o.report).map((o) => names[o.arrangement]) : [names[report.arrangement]];
   const who = studied.length === 1 ? `a ${studied[0]}` : `every arrangement studied (${studied.join(', ')})`;
   const blocks: ReportBlock[] = [
@@ -150,7 +155,7 @@ export function correctionSection(report: CorrectionReport, comparison: Correcti
   // Lines as the board file names them (L1 or A).
   const label = labellerOf(v.before.conventions.phaseNames);
   const blocks: ReportBlock[] = [
-    ...(comparison ? correctionComparisonBlocks(comparison, report.verification.before.board.system) : []),
+    ...(comparison ? correctionComparisonBlocks(comparison, report.verification.before.board.system, report.verification.before.conventions.region) : []),
     { kind: 'paragraph', text: report.summary },
     // A study on a board with harmonic data chose plain or detuned by its harmonic check (the comparison's reason says so already).
     ...(!comparison && 'harmonics' in report ? [{ kind: 'paragraph' as const, text: `Harmonic check: ${(report as HarmonicCorrectionReport).harmonics.summary}.` }] : []),

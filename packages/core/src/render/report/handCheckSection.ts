@@ -9,6 +9,7 @@ import { fixed } from '../svgText.js';
 import { powerFactorText } from '../powerFactorText.js';
 import type { ReportBlock, ReportColumn, ReportSection } from './reportDocument.js';
 import { labelIn, type PhaseNaming } from '../../board/conventions/phaseNames.js';
+import { checkObjectArgument } from '../../_internal/argumentChecks.js';
 
 /** A phase, line pair or branch in the board's naming. */
 type Label = (term: string) => string;
@@ -102,6 +103,7 @@ function comparedTable(r: HandCheckResult, label: Label): ReportBlock {
  * their total (solved − textbook). Shared by the report and `trivar check`'s text.
  */
 export function handCheckEffectRows(r: HandCheckResult): string[][] {
+  checkObjectArgument(r, 'r', 'a hand check from checkHandFigures(...)', ['effects', 'neutralA', 'lines']);
   const hasN = r.neutralA !== null;
   return [
     ...r.effects.map((e) => [
@@ -135,9 +137,12 @@ function effectsTable(r: HandCheckResult, label: Label): ReportBlock {
 /**
  * The check of a hand calculation as a report section (id `hand-check`).
  * @param triangles optional drawing of the line current triangles without and with the user's capacitors
- * @param naming the phase naming to label with @defaultValue the board's (`r.phaseNames`)
+ * @param namingGiven the phase naming to label with @defaultValue the board's (`r.phaseNames`)
  */
-export function handCheckSection(r: HandCheckResult, triangles?: string, naming: PhaseNaming = r.phaseNames): ReportSection {
+export function handCheckSection(r: HandCheckResult, triangles?: string, namingGiven?: PhaseNaming): ReportSection {
+  checkObjectArgument(r, 'r', 'a hand check from checkHandFigures(...)', ['effects', 'neutralA', 'phaseNames', 'board']);
+  // The default is read here, after the check: a default parameter would read r before it.
+  const naming = namingGiven ?? r.phaseNames;
   const label: Label = (term) => labelIn(naming, term);
   const blocks: ReportBlock[] = [
     {

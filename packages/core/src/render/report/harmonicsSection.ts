@@ -5,6 +5,7 @@ import type { ReportBlock, ReportSection } from './reportDocument.js';
 import type { StandardReference } from './reportWording.js';
 import { dutyBlocks, harmonicCurrentTable, harmonicVoltageTable, neutralBlocks, scanBlocks, spectraList, tddTable, voltageDistortionTable } from './harmonicsBlocks.js';
 import type { VoltageDistortionBasis } from '../../harmonics/voltageDistortionLimits.js';
+import { checkObjectArgument } from '../../_internal/argumentChecks.js';
 
 const VOLTAGE_BASIS_STANDARDS: Readonly<Record<VoltageDistortionBasis, StandardReference>> = {
   'iec-61000-2-2': { name: 'IEC 61000-2-2', use: 'compatibility levels of public LV networks the bus harmonic voltages are judged against (each order and THD)' },
@@ -22,6 +23,7 @@ export function harmonicsStandards(bases: readonly VoltageDistortionBasis[]): St
 }
 
 export function harmonicsSection(h: HarmonicsReport): ReportSection {
+  checkObjectArgument(h, 'h', 'a harmonics report from studyHarmonics(...) or analyseHarmonics(...)', ['phaseNames', 'orders', 'lines']);
   // Phases and branches as the board file names them (L1 or A).
   const label = labellerOf(h.phaseNames);
   const blocks: ReportBlock[] = [

@@ -11,6 +11,7 @@ import { fixed } from '../svgText.js';
 import { signedPfText } from '../powerFactorText.js';
 import type { ReportBlock, ReportSection } from './reportDocument.js';
 import { dutyBlocks, harmonicCurrentTable, jointScanBlocks, harmonicVoltageTable, neutralBlocks, orDash, scanBlocks, spectraList, tddTable, voltageDistortionTable } from './harmonicsBlocks.js';
+import { argumentIssueError, checkObjectArgument } from '../../_internal/argumentChecks.js';
 
 /** The bus voltage with the highest THD, as `4.1 % L1-N`. */
 function worstBusWords(b: BoardHarmonics, label: PhaseLabeller): string {
@@ -65,6 +66,8 @@ function boardsTable(r: InstallationHarmonicsReport, label: PhaseLabeller): Repo
  * @param ids the report's section id of each board (`boardSectionIds`)
  */
 export function installationHarmonicsSections(r: InstallationHarmonicsReport, ids: ReadonlyMap<string, string>): ReportSection[] {
+  checkObjectArgument(r, 'r', 'an installation harmonics report from studyInstallationHarmonics(...)', ['phaseNames', 'orders', 'boards']);
+  if (!(ids instanceof Map)) throw argumentIssueError('ids', 'a Map of board name to section id (boardSectionIds(...))', ids);
   const label = labellerOf(r.phaseNames);
   const overview: ReportBlock[] = [
     { kind: 'paragraph', text: `Orders solved: ${r.orders.join(', ') || 'none (no spectrum or background given)'}. State of the banks for the figures below: ${r.state}.` },

@@ -15,11 +15,13 @@ import { renderOneLineDiagram } from '../renderOneLineDiagram.js';
 import type { ReportBlock, ReportColumn, ReportSection } from './reportDocument.js';
 import { conductorWords, resultBlocks, scheduleTable, sourceWords, systemFacts } from './boardSections.js';
 import { sourceVoltageWords } from '../nominalVoltageWords.js';
+import { checkListArgument } from '../../_internal/argumentChecks.js';
 
 const num = (label: string): ReportColumn => ({ label, align: 'right' });
 
 /** File- and anchor-safe ids for the boards, unique even where two names differ only in case or punctuation. */
 export function boardSectionIds(names: readonly string[]): Map<string, string> {
+  checkListArgument(names, 'names', 'a list of board names (strings)', (x) => typeof x === 'string');
   const used = new Set<string>();
   const out = new Map<string, string>();
   for (const name of names) {

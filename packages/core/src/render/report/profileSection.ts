@@ -18,6 +18,7 @@ import { billingPowerFactorText } from '../../profile/billingPowerFactor.js';
 import { contactorLifeWords } from '../../profile/profileWording.js';
 import type { ReportBlock, ReportSection } from './reportDocument.js';
 import { labellerOf, type PhaseNaming } from '../../board/conventions/phaseNames.js';
+import { argumentIssueError, checkListArgument, checkObjectArgument } from '../../_internal/argumentChecks.js';
 
 export interface ProfileChart {
   /** File-safe short name. */
@@ -105,9 +106,12 @@ function bankBlock(b: ProfileBankResult, where = ''): ReportBlock {
 }
 
 /**
- * @param naming the phase naming conductors and phases are labelled with @defaultValue the board's (`p.phaseNames`)
+ * @param namingGiven the phase naming conductors and phases are labelled with @defaultValue the board's (`p.phaseNames`)
  */
-export function profileSection(p: ProfileResult, charts: readonly ProfileChart[], naming: PhaseNaming = p.phaseNames): ReportSection {
+export function profileSection(p: ProfileResult, charts: readonly ProfileChart[], namingGiven?: PhaseNaming): ReportSection {
+  checkObjectArgument(p, 'p', 'a profile result from profileBoard(...)', ['phaseNames']);
+  checkListArgument(charts, 'charts', 'a list of profile charts (empty for none)');
+  const naming = namingGiven ?? p.phaseNames;
   const blocks = boardBlocks({ ...p, currentsCaption: 'Conductor currents over the period' }, charts, naming, 'profile-');
   if (p.bank) blocks.push(bankBlock(p.bank));
   if (p.bank?.warnings.length) blocks.push({ kind: 'list', tone: 'warning', items: p.bank.warnings });
@@ -125,8 +129,12 @@ export function installationProfileSections(
   r: InstallationProfileResult,
   charts: { readonly boards: ReadonlyMap<string, readonly ProfileChart[]>; readonly overview: readonly ProfileChart[] },
   ids: ReadonlyMap<string, string>,
-  naming: PhaseNaming = r.phaseNames,
+  namingGiven?: PhaseNaming,
 ): ReportSection[] {
+  checkObjectArgument(r, 'r', 'an installation profile result from profileInstallation(...)', ['phaseNames', 'boards']);
+  checkObjectArgument(charts, 'charts', 'the charts { boards, overview }', ['boards', 'overview']);
+  if (!(ids instanceof Map)) throw argumentIssueError('ids', 'a Map of board name to section id (boardSectionIds(...))', ids);
+  const naming = namingGiven ?? r.phaseNames;
   const peakLine = (s: ProfileSummary) => Math.max(...s.conductors.filter((c) => c.conductor !== 'N').map((c) => c.maxA));
   const main = r.boards[0]!;
   const overview: ReportBlock[] = [

@@ -2,6 +2,7 @@
 import { escapeXml } from '../svgText.js';
 import type { ReportBlock, ReportDocument } from './reportDocument.js';
 import { REPORT_CSS } from './reportStyles.js';
+import { checkListArgument, checkObjectArgument } from '../../_internal/argumentChecks.js';
 
 export interface ReportHtmlOptions {
   /** Footer line, e.g. the program and version that made the report. @defaultValue 'Made with trivar' */
@@ -35,6 +36,8 @@ function block(b: ReportBlock): string {
  * renderReportHtml(buildBoardReport({ spec, result })).startsWith('<!DOCTYPE html>') //=> true
  */
 export function renderReportHtml(doc: ReportDocument, options: ReportHtmlOptions = {}): string {
+  checkObjectArgument(doc, 'doc', 'a report document from buildBoardReport(...) or buildInstallationReport(...)', ['sections']);
+  checkListArgument(doc.sections, 'doc.sections', 'the list of report sections', (x) => typeof x === 'object' && x !== null);
   const contents = doc.sections.map((s) => `<li><a href="#${escapeXml(s.id)}">${escapeXml(s.title)}</a></li>`).join('');
   const sections = doc.sections
     .map((s) => `<section id="${escapeXml(s.id)}">\n<h2>${escapeXml(s.title)}</h2>\n${s.blocks.map(block).join('\n')}\n</section>`)

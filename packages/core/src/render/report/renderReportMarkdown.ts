@@ -1,6 +1,7 @@
 /** A report document as Markdown, with each figure as an SVG file to write beside it. */
 import type { ReportBlock, ReportDocument } from './reportDocument.js';
 import { visibleControls } from '../svgText.js';
+import { checkListArgument, checkObjectArgument, checkTextArgument } from '../../_internal/argumentChecks.js';
 
 export interface MarkdownReport {
   readonly markdown: string;
@@ -29,6 +30,9 @@ const escapeParagraph = (t: string): string => escapeMarkdown(t).replace(/^([-+=
  * @param figurePrefix start of each figure's file name (usually the report's own base name)
  */
 export function renderReportMarkdown(doc: ReportDocument, figurePrefix: string): MarkdownReport {
+  checkObjectArgument(doc, 'doc', 'a report document from buildBoardReport(...) or buildInstallationReport(...)', ['sections']);
+  checkListArgument(doc.sections, 'doc.sections', 'the list of report sections', (x) => typeof x === 'object' && x !== null);
+  checkTextArgument(figurePrefix, 'figurePrefix', 'the prefix of the figure files, a string (e.g. "report")');
   const files: { name: string; content: string }[] = [];
   const block = (b: ReportBlock): string => {
     switch (b.kind) {

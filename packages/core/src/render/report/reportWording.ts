@@ -1,4 +1,5 @@
 /** Fixed wording of reports: assumptions and the standards and methods referred to. */
+import type { StarWord } from '../../board/conventions/regionWords.js';
 
 /**
  * How the line currents close, said for the board's system: a three-phase 3-wire board has no neutral
@@ -52,12 +53,13 @@ export const THREE_PHASE_STANDARDS: readonly StandardReference[] = [
   { name: 'IEEE phase-voltage unbalance rate (P. Pillay, M. Manyage, "Definitions of voltage unbalance")', use: 'unbalance of the line-to-neutral voltages' },
 ];
 
-export const CORRECTION_STANDARDS: readonly StandardReference[] = [
+/** The standards a correction study rests on; the compensator's branches in the board's word for star (wye in North America). */
+export const correctionStandards = (star: StarWord): readonly StandardReference[] => [
   { name: 'IEC 60831-1', use: 'low-voltage shunt capacitors: capacitance tolerance, permitted voltage and current, discharge' },
   { name: 'IEEE Std 18', use: 'shunt power capacitors: continuous voltage, current and kvar limits' },
   { name: 'IEEE Std 1036', use: 'application of shunt capacitors: voltage rise ΔV/V ≈ Qc/Ssc and parallel resonance order h = √(Ssc/Qc)' },
   { name: 'NEC Article 460', use: 'capacitor installations: discharge and conductor sizing (where the NEC applies)' },
-  { name: 'Steinmetz / Gyugyi balancing compensator', use: 'delta and star reactive branches that balance an unbalanced load' },
+  { name: 'Steinmetz / Gyugyi balancing compensator', use: `delta and ${star} reactive branches that balance an unbalanced load` },
 ];
 
 /** Harmonic orders that common six-pulse loads produce, where a resonance is worth a caution. */
