@@ -246,6 +246,24 @@ function highEndWords(check: { readonly leadingLines: readonly PhaseId[]; readon
   return 'no line leads';
 }
 
+/** The supply resonance line: its estimate and what it is worked from, or why there is none. */
+function resonanceWords(v: CorrectionVerification, detuned: boolean): string {
+  const head = 'parallel resonance with the supply';
+  const c = v.resonanceCapacitance;
+  if (v.resonanceOrder === null) {
+    if (detuned) return `${head}: a detuned bank keeps it below its tuning order (see the harmonic check)`;
+    if (v.voltageRise.shortCircuitKVA === null) return `${head}: not estimated, the source is ideal (no impedance to resonate with)`;
+    return `${head}: none, no capacitors are added and no load on the board draws leading vars`;
+  }
+  const formula = c.reactorKvar > 0 ? '√((S_sc + Q_L)/Q_C)' : '√(S_sc/Q_C)';
+  const parts = [
+    ...(c.addedKvar > 0 ? [`${fixed(c.addedKvar, 1)} kvar added`] : []),
+    ...(c.onBoardKvar > 0 ? [`${fixed(c.onBoardKvar, 1)} kvar of leading loads already on the board (${c.loadsOnBoard.join(', ')}), taken as capacitance`] : []),
+  ];
+  const reactors = c.reactorKvar > 0 ? `; Q_L ${fixed(c.reactorKvar, 1)} kvar of reactors added` : '';
+  return `${head} at about h = ${formula} = ${fixed(v.resonanceOrder, 2)} (× ${v.after.board.frequencyHz} Hz = ${fixed(v.resonanceOrder * v.after.board.frequencyHz, 0)} Hz); Q_C ${parts.join(' + ')}${reactors}`;
+}
+
 /** `detuned`: the bank's steps sit behind reactors, so √(S_sc/Qc) does not apply (the harmonic check covers it). */
 function checksBlock(v: CorrectionVerification, detuned = false): string {
   const out: string[] = [];
@@ -258,13 +276,7 @@ function checksBlock(v: CorrectionVerification, detuned = false): string {
   out.push(
     `steady voltage rise: ${vr.estimatePercent === null ? 'ideal source (none)' : `≈ Qc/S_sc = ${fixed(vr.capacitorKvar, 1)} kvar (at the corrected board's voltage) / ${fixed(vr.shortCircuitKVA ?? 0, 0)} kVA = ${fixed(vr.estimatePercent, 2)} %`}; solved ${fixed(vr.solvedPercent, 2)} %; flag above ${vr.limitPercent} %${vr.flagged ? '  ← FLAGGED' : ''}`,
   );
-  out.push(
-    v.resonanceOrder === null
-      ? detuned
-        ? 'parallel resonance with the supply: a detuned bank keeps it below its tuning order (see the harmonic check)'
-        : 'parallel resonance with the supply: not estimated (ideal source or no capacitors)'
-      : `parallel resonance with the supply at about h = √(S_sc/Qc) = ${fixed(v.resonanceOrder, 2)} (× ${v.after.board.frequencyHz} Hz = ${fixed(v.resonanceOrder * v.after.board.frequencyHz, 0)} Hz)`,
-  );
+  out.push(resonanceWords(v, detuned));
   if (v.lightLoad) {
     const ll = v.lightLoad;
     const lines = ll.lines.map((l) => `${label(l.phase)} ${pfFigure(l.pf)} ${senseWord(l.sense)}`.trim()).join(', ');

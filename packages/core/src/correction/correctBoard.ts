@@ -28,6 +28,7 @@ import { conventionsOf } from '../board/conventions/boardConventions.js';
 import { labellerOf, type PhaseLabeller } from '../board/conventions/phaseNames.js';
 import { regionWords } from '../board/conventions/regionWords.js';
 import { assertBoardModel } from '../board/modelGuards.js';
+import { emptyBelowKvar } from './_internal/branchReadings.js';
 
 /** @param use `limitsOnly` for the light-load sizing, read only for its limits (see ResolvedBankOptions) */
 function sizeArrangement(board: Board, spec: CorrectionSpec & { arrangement: Arrangement }, use: { limitsOnly?: boolean; heldBranches?: readonly string[] } = {}): BankSizing | CompensatorSizing {
@@ -81,12 +82,17 @@ function starPointWarnings(sizing: BankSizing | CompensatorSizing, board: Board)
 const buildable = (sizing: BankSizing | CompensatorSizing): SizedEquipment =>
   sizing.arrangement === 'balancing-compensator' ? (sizing.recommended === 'ideal' ? sizing.ideal : sizing.capacitorOnly) : sizing;
 
-/** The reactors of the equipment as built, for the one-line summary. */
+/**
+ * The reactors of the equipment as built, for the one-line summary. A branch the sizing reads as empty
+ * (a re-fit's last bits where the answer is zero) is no reactor, as in the branch tables; nor is one
+ * that would print as 0.00 kvar: nobody builds it.
+ */
 function reactorWords(equipment: readonly EquipmentGroup[], label: PhaseLabeller): string {
-  const reactors = equipment.flatMap((g) => g.branches).filter((b) => b.susceptanceS < 0);
-  return reactors.length
-    ? `, with ${reactors.map((b) => `a ${Math.abs(kvarFromSusceptance(b.susceptanceS, b.vNominal)).toFixed(2)} kvar reactor on ${label(b.branch)}`).join(' and ')}`
-    : '';
+  const branches = equipment.flatMap((g) => g.branches);
+  const kvarOf = (b: (typeof branches)[number]) => Math.abs(kvarFromSusceptance(b.susceptanceS, b.vNominal));
+  const empty = Math.max(emptyBelowKvar(branches.reduce((sum, b) => sum + kvarOf(b), 0)), 0.005);
+  const reactors = branches.filter((b) => b.susceptanceS < 0 && kvarOf(b) >= empty);
+  return reactors.length ? `, with ${reactors.map((b) => `a ${kvarOf(b).toFixed(2)} kvar reactor on ${label(b.branch)}`).join(' and ')}` : '';
 }
 
 /**
