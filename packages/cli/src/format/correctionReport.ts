@@ -50,19 +50,39 @@ function elementText(b: BranchSizing): string {
   return `L ${fixed(b.inductanceMH ?? 0, 2)} mH`;
 }
 
+/** A voltage as a header shows it: 400 V, 230.9 V. */
+const voltsText = (v: number): string => v.toFixed(1).replace(/\.0$/, '');
+
+/**
+ * The voltage a sizing's kvar column is taken at, read back from each branch (kvar = B·V²): the model's
+ * nominal voltage, where the loads are rated (230.9 V on a 230/400 V board), which the unit tables after
+ * it do not use (they are at the system's 230 V), so the header names it. A table with star and delta
+ * branches (a compensator) names both in a note.
+ */
+function sizingVoltages(branches: readonly BranchSizing[]): { header: string; note: string } {
+  const star = (b: BranchSizing) => /-(N|star)$/.test(b.branch);
+  const voltsOf = (part: readonly BranchSizing[]) => [...new Set(part.filter((b) => b.susceptanceS !== 0).map((b) => voltsText(Math.sqrt((b.kvarAtNominalV * 1000) / b.susceptanceS))))];
+  const ln = voltsOf(branches.filter(star));
+  const ll = voltsOf(branches.filter((b) => !star(b)));
+  if (ln.length + ll.length === 1) return { header: `kvar@${[...ln, ...ll][0]} V`, note: '' };
+  if (ln.length === 1 && ll.length === 1) return { header: 'kvar@nom V', note: `\n  (kvar@nom V: at ${ln[0]} V across a line-to-neutral branch, ${ll[0]} V across a line-to-line branch)` };
+  return { header: 'kvar@nom V', note: '' };
+}
+
 /** The continuous (ideal-size) elements: what each branch needs before units are chosen. */
 function sizingTable(branches: readonly BranchSizing[], label: PhaseLabeller): string {
+  const volts = sizingVoltages(branches);
   return renderTable(
     [
       { header: 'branch', align: 'left' },
       { header: 'element', align: 'left' },
-      { header: 'kvar@nom V' },
+      { header: volts.header },
       { header: 'V applied' },
       { header: 'kvar@applied' },
       { header: 'A' },
     ],
     branches.map((b) => [label(b.branch), elementText(b), fixed(b.kvarAtNominalV, 2), fixed(b.appliedV, 1), fixed(b.kvarAtAppliedV, 2), fixed(b.currentA, 2)]),
-  );
+  ) + volts.note;
 }
 
 /** The branches of a step, short: a three-branch step by its connection. */

@@ -275,6 +275,10 @@ export function correctBoard(board: Board, spec: unknown): CorrectionReport {
           ),
         );
     }
+  } else if (nothingBuilt(recommended)) {
+    // The sizing found every branch empty: the board meets the target as it is, and that is the verdict
+    // (the one a comparison gives), not "meets the target with 0.00 kvar" and cautions for a bank not added.
+    status = 'already-meets-target';
   } else status = chosen.verdict === 'meets-at-nominal' ? 'meets-target-at-nominal-capacitance' : 'meets-target';
   // "A line that already led may not lead more" is meant for the one line a line-to-line load makes
   // lead; where every judged line led before (other banks in service, an over-sized fixed bank) and
@@ -332,6 +336,14 @@ export function correctBoard(board: Board, spec: unknown): CorrectionReport {
     // Nothing to install: the capacitor cautions (discharge, inrush, resonance) are for equipment being added.
     cautions: status === 'already-meets-target' ? [MODEL_CAUTION] : correctionCautions(regionWords(conventionsOf(board).region, board.system).groundWord),
   };
+}
+
+/** True when the equipment as built has no element worth building (every branch read as empty, as the branch tables read it). */
+function nothingBuilt(equipment: readonly EquipmentGroup[]): boolean {
+  const branches = equipment.flatMap((g) => g.branches);
+  const kvarOf = (b: (typeof branches)[number]) => Math.abs(kvarFromSusceptance(b.susceptanceS, b.vNominal));
+  const empty = emptyBelowKvar(branches.reduce((sum, b) => sum + kvarOf(b), 0));
+  return branches.every((b) => kvarOf(b) < empty);
 }
 
 /** Lines short of their minimum PF on a board whose every judged line led before correction; empty otherwise. */
