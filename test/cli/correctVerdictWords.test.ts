@@ -66,3 +66,45 @@ describe('the sizing table names the voltage its kvar is taken at', () => {
     expect(text).toContain('(kvar@nom V: at 230.9 V across a line-to-neutral branch, 400 V across a line-to-line branch)');
   });
 });
+
+describe('a line that led before correction is named where the verdict passes it', () => {
+  // Invented: the Fernhill pottery, a resistive B-C kiln makes line B lead near cos 30° = 0.866 whatever is added.
+  const pottery: BoardSpec = {
+    name: 'Fernhill pottery',
+    supply: { system: 'three-phase-4wire', voltage: { lineToLine: 400 }, frequencyHz: 50, transformer: { kVA: 100, impedancePercent: 4, xOverR: 3 } },
+    loads: [
+      { name: 'Kiln', connection: 'B-C', kW: 9, pf: 1, model: 'constant-impedance' },
+      { name: 'Glaze heater', connection: 'A-N', kW: 8, pf: 0.85 },
+      { name: 'Pug-mill coil', connection: 'C-N', ohms: { r: 7, x: 5 } },
+    ],
+  };
+  const board = normaliseBoard(parseBoard(pottery));
+
+  it('the star bank meets the per-line target with line B at about 0.866 leading, and says line B is held to another rule', () => {
+    const r = correctBoard(board, { arrangement: 'star-bank' });
+    expect(r.status).toBe('meets-target');
+    expect(r.verification.check.leadingBefore).toEqual(['B']);
+    const b = r.verification.lines[1]!.pf;
+    expect(Math.abs(b.after! - 0.866)).toBeLessThan(0.01);
+    expect(r.summary).toContain(`; line B already led before correction (PF ${b.before!.toFixed(3)} leading before, ${b.after!.toFixed(3)} after): capacitors cannot stop a leading line leading, so it is held only to lead no more than before`);
+    const text = renderCorrectionReport(r).replace(/\s+/g, ' ');
+    expect(text).toContain('PF ≥ 0.950, never leading (except line B, which already led before correction: held to lead no more than before)');
+  });
+
+  it('the comparison keeps "never leading" in its target and names line B under the table', async () => {
+    const { renderComparisonReport } = await import('../../packages/cli/src/format/comparisonReport.js');
+    const c = compareCorrections(board, {});
+    const text = renderComparisonReport(c).replace(/\s+/g, ' ');
+    expect(text).toMatch(/target: displacement power factor of every line .*; PF ≥ 0\.950, never leading Arrangements compared/);
+    const before = c.outcomes.find((o) => o.arrangement === 'star-bank')!.report!.verification.lines[1]!.pf.before!;
+    expect(text).toContain(`exempt (star bank, delta bank`);
+    expect(text).toContain(`line B already led before correction (PF ${before.toFixed(3)} leading): capacitors cannot stop a leading line leading`);
+  });
+
+  it('a board where no line led before has no such words', () => {
+    const r = correctBoard(normaliseBoard(parseBoard(workshop)), { arrangement: 'star-bank' });
+    expect(r.verification.check.leadingBefore).toEqual([]);
+    expect(r.summary).not.toContain('already led');
+    expect(renderCorrectionReport(r)).not.toContain('except line');
+  });
+});

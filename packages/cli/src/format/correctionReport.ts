@@ -1,5 +1,5 @@
 /** CorrectionReport → the human-readable report of `trivar correct` (fits 100 columns). */
-import { arrangementDescriptions, arrangementNames, BUILD_VERDICT_WORDS, CORRECTION_DEFAULTS, labellerOf, meteringPointWords, reactorChanges, smallBranchWords, sparedBranchesWords, type BankSelection, type BankStep, type BeforeAfter, type BranchSizing, type CompensatorSizing, type ControllerSettings, type CorrectionReport, type CorrectionVerification, type FewerBranchesBuild, type PhaseId, type RoundingBesideReactors, type PhaseLabeller, signedPfText, linePfText, exportingLinesNote } from '@trivar/core';
+import { exemptLeadingLines, arrangementDescriptions, arrangementNames, BUILD_VERDICT_WORDS, CORRECTION_DEFAULTS, labellerOf, meteringPointWords, reactorChanges, smallBranchWords, sparedBranchesWords, type BankSelection, type BankStep, type BeforeAfter, type BranchSizing, type CompensatorSizing, type ControllerSettings, type CorrectionReport, type CorrectionVerification, type FewerBranchesBuild, type PhaseId, type RoundingBesideReactors, type PhaseLabeller, signedPfText, linePfText, exportingLinesNote } from '@trivar/core';
 import { fixed, renderTable, section } from './textTable.js';
 import { headerLines } from './solveReport.js';
 import { wrapText } from './wrapText.js';
@@ -432,8 +432,14 @@ export function renderNothingToAdd(r: CorrectionReport, studied: string): string
   return `${parts.join('\n')}\n`;
 }
 
+/** Lines that led before correction are held to another rule (the verdict says why): the target line names them. */
+const exemptNote = (r: CorrectionReport): string => {
+  const lines = exemptLeadingLines(r.verification.check).map(labelsOf(r.verification));
+  return lines.length ? ` (except line${lines.length > 1 ? 's' : ''} ${lines.join(', ')}, which already led before correction: held to lead no more than before)` : '';
+};
+
 const targetWords = (r: CorrectionReport): string =>
-  `${r.target.statement}; PF ≥ ${boundFigure(r.target.pf)}${r.target.leading === 'never' ? ', never leading' : ', leading allowed'}${r.target.maxLaggingPf === null ? '' : `, at most ${fixed(r.target.maxLaggingPf, 3)} lagging`}${r.target.measuredAt === undefined ? '' : `; measured at ${meteringPointWords(r.target.measuredAt)}`}`;
+  `${r.target.statement}; PF ≥ ${boundFigure(r.target.pf)}${r.target.leading === 'never' ? ', never leading' : ', leading allowed'}${exemptNote(r)}${r.target.maxLaggingPf === null ? '' : `, at most ${fixed(r.target.maxLaggingPf, 3)} lagging`}${r.target.measuredAt === undefined ? '' : `; measured at ${meteringPointWords(r.target.measuredAt)}`}`;
 
 export function renderCorrectionReport(r: CorrectionReport): string {
   if (r.status === 'already-meets-target') return renderNothingToAdd(r, `a ${arrangementNames(r.verification.before.board.system)[r.arrangement]}`);

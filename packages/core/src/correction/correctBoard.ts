@@ -19,7 +19,7 @@ import { defaultPractice, selectBankUnits } from './selectBankUnits.js';
 import { verifyCorrection, type VerifyCorrectionOptions } from './verifyCorrection.js';
 import { scaleBoardLoads } from './scaleBoardLoads.js';
 import type { BankSelection, BankSizing, BuildVerdict, CompensatorSizing, CorrectionReport, CorrectionStatus, CorrectionVerification, CorrectionWarning, FewerBranchesBuild, RoundingBesideReactors, SizedEquipment } from './correctionResult.js';
-import { arrangementNames, correctionCautions, infeasibleReason, MODEL_CAUTION, meteringWarning, reportSummary, warningText } from './correctionWording.js';
+import { arrangementNames, correctionCautions, exemptLeadingLines, exemptLeadingWords, infeasibleReason, MODEL_CAUTION, meteringWarning, reportSummary, warningText } from './correctionWording.js';
 import { definedOnly } from './_internal/optionSchemas.js';
 import { assertViableBoard } from '../analysis/viableOperatingPoint.js';
 import { CORRECTION_DEFAULTS, toleranceFractions } from './correctionDefaults.js';
@@ -320,6 +320,8 @@ export function correctBoard(board: Board, spec: unknown): CorrectionReport {
           ? reportSummary[status](what, delivered, nameplate, (selection?.unbuildable?.branches ?? []).map(label))
           : reportSummary[status](what, delivered, nameplate)) +
       reactorWords(recommended, label) +
+      // A line that led before is held to another rule than the target as written: the verdict says which and why.
+      (status.startsWith('meets') ? exemptWords(verification, label) : '') +
       // Meeting the PF target says nothing of what the equipment overloads: the summary says it beside the verdict.
       (verification.overloadsCaused.length ? `; but with it in, ${verification.overloadsCaused.map((o) => o.message).join('; ')}` : ''),
     reasons,
@@ -336,6 +338,17 @@ export function correctBoard(board: Board, spec: unknown): CorrectionReport {
     // Nothing to install: the capacitor cautions (discharge, inrush, resonance) are for equipment being added.
     cautions: status === 'already-meets-target' ? [MODEL_CAUTION] : correctionCautions(regionWords(conventionsOf(board).region, board.system).groundWord),
   };
+}
+
+/** The lines held only to lead no more than before (they led before correction), for the verdict; '' when none. */
+function exemptWords(v: CorrectionVerification, label: PhaseLabeller): string {
+  // The figures the target was judged on: the metering point's where it is measured elsewhere.
+  const judgedLines = v.metering?.lines ?? v.lines;
+  const lines = exemptLeadingLines(v.check).map((p) => {
+    const line = judgedLines.find((l) => l.phase === p)!;
+    return { line: label(p), pfBefore: line.pf.before, pfAfter: line.pf.after };
+  });
+  return lines.length ? `; ${exemptLeadingWords(lines)}` : '';
 }
 
 /** True when the equipment as built has no element worth building (every branch read as empty, as the branch tables read it). */

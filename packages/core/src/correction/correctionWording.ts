@@ -3,6 +3,7 @@
  * reasons, warnings and cautions. Plain text; the CLI decides how to show it.
  */
 import type { PhaseLabel } from '../board/conventions/phaseNames.js';
+import type { PhaseId } from '../board/boardModel.js';
 import type { PowerFactorSense } from '../analysis/boardResult.js';
 import type { Arrangement, TargetDefinition } from './correctionSpec.js';
 import type { BuildVerdict, SmallBranch, SparedBranch, TargetName } from './correctionResult.js';
@@ -284,6 +285,21 @@ export const selectionWording = {
   detunedCostStatement: (unitCostKvar: number, percent: number, reactorFactor: number) =>
     `cost = nameplate kvar of the capacitors + ${unitCostKvar} kvar-equivalent per unit bought + the ${percent} % detuning reactors at ${reactorFactor} × their kvar (${percent} % of the capacitors' nameplate); the units were chosen as their fundamental equivalents behind the reactors`,
 };
+
+/**
+ * The lines a target holds only to "lead no more than before": they led before correction, and adding
+ * capacitors can only add to a lead, so the target's PF and "never leading" cannot apply there.
+ * @example exemptLeadingWords([{ line: 'B', pfBefore: 0.864, pfAfter: 0.866 }])
+ */
+export const exemptLeadingWords = (lines: readonly { line: PhaseLabel; pfBefore: number | null; pfAfter: number | null }[]): string => {
+  const many = lines.length > 1;
+  const figures = lines.map((l) => `${many ? `${l.line} ` : ''}${l.pfBefore === null ? 'no current' : `PF ${f3(l.pfBefore)} leading`}${l.pfAfter === null ? '' : ` before, ${f3(l.pfAfter)} after`}`).join('; ');
+  return `line${many ? 's' : ''} ${lines.map((l) => l.line).join(', ')} already led before correction (${figures}): capacitors cannot stop a leading line leading, so ${many ? 'they are' : 'it is'} held only to lead no more than before, not to the PF or "never leading" of the target`;
+};
+
+/** The lines a verdict passes only under the "lead no more than before" rule: they led before correction and still lead. */
+export const exemptLeadingLines = (check: { readonly leadingBefore: readonly PhaseId[]; readonly lines: readonly { readonly phase: PhaseId; readonly sense: string }[] }): PhaseId[] =>
+  check.leadingBefore.filter((p) => check.lines.find((l) => l.phase === p)?.sense === 'leading');
 
 const bankWords = (delivered: number, nameplate: number) => `${delivered.toFixed(2)} kvar delivered (${nameplate.toFixed(2)} kvar nameplate)`;
 
