@@ -1,6 +1,6 @@
 /** CorrectionComparison → the side-by-side report of `trivar correct` without an arrangement (fits 100 columns). */
 import { boundFigure } from './correctionReport.js';
-import { arrangementNames, exemptLeadingLines, exemptLeadingWords, labellerOf, type Arrangement, type ArrangementOutcome, type CorrectionComparison, type HarmonicComparison, signedPfText } from '@trivar/core';
+import { arrangementNames, exemptLeadingLines, lossesPlaceWords, exemptLeadingWords, labellerOf, type Arrangement, type ArrangementOutcome, type CorrectionComparison, type HarmonicComparison, signedPfText } from '@trivar/core';
 import { fixed, renderTable, section } from './textTable.js';
 import { headerLines } from './solveReport.js';
 import { renderCorrectionReport, renderNothingToAdd } from './correctionReport.js';
@@ -113,7 +113,7 @@ export function renderComparisonReport(c: CorrectionComparison): string {
       ) +
       '\n' +
       [
-        `${names['star-bank'] === TWO_LINE_TABLE_NAMES['star-bank'] ? `${TWO_LINE_LEGEND}; ` : ''}delivered: kvar at the solved voltage (+L: reactor kvar); nom C: at nominal capacitance only;${c.outcomes.some((o) => o.report?.status === 'no-suitable-units' && (o.report.selection?.units ?? 0) > 0) ? ' part built: no unit suits some branches, the rest built without them;' : ''}${c.outcomes.some(overloading) ? ' overloads: meets the target, but with it in a conductor or the supply is above its rating (see Recommendation);' : ''}${failing.size ? ' fails check: meets the target, but no variant passes the harmonic check;' : ''} plate: nameplate kvar; PF after: the PF the target is defined on (per-line: the lowest line); neutral: A after; loss: source + feeder after`,
+        `${names['star-bank'] === TWO_LINE_TABLE_NAMES['star-bank'] ? `${TWO_LINE_LEGEND}; ` : ''}delivered: kvar at the solved voltage (+L: reactor kvar); nom C: at nominal capacitance only;${c.outcomes.some((o) => o.report?.status === 'no-suitable-units' && (o.report.selection?.units ?? 0) > 0) ? ' part built: no unit suits some branches, the rest built without them;' : ''}${c.outcomes.some(overloading) ? ' overloads: meets the target, but with it in a conductor or the supply is above its rating (see Recommendation);' : ''}${failing.size ? ' fails check: meets the target, but no variant passes the harmonic check;' : ''} plate: nameplate kvar; PF after: the PF the target is defined on (per-line: the lowest line); neutral: A after; loss: ${lossesPlaceWords(first?.verification.before.incomer ?? null)} after`,
         ...c.outcomes.filter((o) => o.notApplicable).map((o) => `${arrangementNames(system)[o.arrangement]}: ${o.notApplicable}`),
         ...exemptFootnote(c),
       ]

@@ -1,5 +1,5 @@
 /** CorrectionReport → the human-readable report of `trivar correct` (fits 100 columns). */
-import { exemptLeadingLines, arrangementDescriptions, arrangementNames, BUILD_VERDICT_WORDS, CORRECTION_DEFAULTS, labellerOf, meteringPointWords, reactorChanges, smallBranchWords, sparedBranchesWords, type BankSelection, type BankStep, type BeforeAfter, type BranchSizing, type CompensatorSizing, type ControllerSettings, type CorrectionReport, type CorrectionVerification, type FewerBranchesBuild, type PhaseId, type RoundingBesideReactors, type PhaseLabeller, signedPfText, linePfText, exportingLinesNote } from '@trivar/core';
+import { exemptLeadingLines, lossesPlaceWords, arrangementDescriptions, arrangementNames, BUILD_VERDICT_WORDS, CORRECTION_DEFAULTS, labellerOf, meteringPointWords, reactorChanges, smallBranchWords, sparedBranchesWords, type BankSelection, type BankStep, type BeforeAfter, type BranchSizing, type CompensatorSizing, type ControllerSettings, type CorrectionReport, type CorrectionVerification, type FewerBranchesBuild, type PhaseId, type RoundingBesideReactors, type PhaseLabeller, signedPfText, linePfText, exportingLinesNote } from '@trivar/core';
 import { fixed, renderTable, section } from './textTable.js';
 import { headerLines } from './solveReport.js';
 import { wrapText } from './wrapText.js';
@@ -243,7 +243,7 @@ function boardLines(v: CorrectionVerification): string {
     out.push(`voltage unbalance |V2|/|V1|  ${arrow(v.unbalance.voltageFactorPercent, 2, ' %')}`);
   }
   out.push(
-    `losses (source + feeder)     ${fixed(v.before.losses.totalKW, 3)} kW → ${fixed(v.after.losses.totalKW, 3)} kW (${signed(v.lossReductionKW, 3, 'kW', 'saves', 'adds')})`,
+    `${`losses (${lossesPlaceWords(v.before.incomer)})`.padEnd(28)} ${fixed(v.before.losses.totalKW, 3)} kW → ${fixed(v.after.losses.totalKW, 3)} kW (${signed(v.lossReductionKW, 3, 'kW', 'saves', 'adds')})`,
   );
   const worstDrop = (r: CorrectionVerification['before']) => Math.max(...r.phases.map((p) => p.voltageDropPercent));
   out.push(`largest voltage drop         ${fixed(worstDrop(v.before), 2)} % → ${fixed(worstDrop(v.after), 2)} %`);

@@ -443,7 +443,11 @@ export interface CorrectionVerification {
   } | null;
   /** Apparent power no longer drawn (before − after), kVA. */
   readonly releasedKVA: { readonly effective: number | null; readonly vector: number; readonly arithmetic: number; readonly source: number };
-  /** Loss reduction in source and feeder (before − after), kW. */
+  /**
+   * Loss reduction (before − after), kW, in the losses `before.losses`/`after.losses` hold: source and
+   * feeder on a main or single board; on a sub-board of an installation only its own feeder (the
+   * installation's total is `InstallationEffect`'s).
+   */
   readonly lossReductionKW: number;
   readonly tolerance: { readonly low: ToleranceCase; readonly high: ToleranceCase };
   readonly voltageRise: VoltageRise;

@@ -297,6 +297,13 @@ export const exemptLeadingWords = (lines: readonly { line: PhaseLabel; pfBefore:
   return `line${many ? 's' : ''} ${lines.map((l) => l.line).join(', ')} already led before correction (${figures}): capacitors cannot stop a leading line leading, so ${many ? 'they are' : 'it is'} held only to lead no more than before, not to the PF or "never leading" of the target`;
 };
 
+/**
+ * Where the losses a correction compares are: the source and feeder of a main (or single) board; on a
+ * sub-board only its own feeder from the board feeding it (the installation's total is the installation
+ * effect's). `incomer` is the sub-board's `BoardResult.incomer`, null on a main board.
+ */
+export const lossesPlaceWords = (incomer: { readonly fedFrom: string } | null): string => (incomer ? `its feeder from ${incomer.fedFrom}` : 'source + feeder');
+
 /** The lines a verdict passes only under the "lead no more than before" rule: they led before correction and still lead. */
 export const exemptLeadingLines = (check: { readonly leadingBefore: readonly PhaseId[]; readonly lines: readonly { readonly phase: PhaseId; readonly sense: string }[] }): PhaseId[] =>
   check.leadingBefore.filter((p) => check.lines.find((l) => l.phase === p)?.sense === 'leading');

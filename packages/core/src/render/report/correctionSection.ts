@@ -164,7 +164,7 @@ export function correctionSection(report: CorrectionReport, comparison: Correcti
         ...(v.powerFactor.effective ? ([['Power factor, effective (IEEE 1459)', `${fixed(v.powerFactor.effective.before, 3)} → ${fixed(v.powerFactor.effective.after, 3)}`]] as [string, string][]) : []),
         ...(v.neutralCurrentA ? ([['Neutral current', `${fixed(v.neutralCurrentA.before, 1)} → ${fixed(v.neutralCurrentA.after, 1)} A`]] as [string, string][]) : []),
         ['Apparent power released at the source', `${fixed(v.releasedKVA.source, 2)} kVA`],
-        ['Losses in source and feeder', lossChangeWords(v.before.losses.totalKW, v.after.losses.totalKW, v.lossReductionKW)],
+        [v.before.incomer ? `Losses in the feeder from ${v.before.incomer.fedFrom}` : 'Losses in source and feeder', lossChangeWords(v.before.losses.totalKW, v.after.losses.totalKW, v.lossReductionKW)],
         ['Voltage rise from the capacitors', `${fixed(v.voltageRise.solvedPercent, 2)} % (limit ${fixed(v.voltageRise.limitPercent, 1)} %)`],
       ],
     },
