@@ -280,8 +280,8 @@ function resonanceWords(v: CorrectionVerification, detuned: boolean): string {
     ...(c.addedKvar > 0 ? [`${fixed(c.addedKvar, 1)} kvar added`] : []),
     ...(c.onBoardKvar > 0 ? [`${fixed(c.onBoardKvar, 1)} kvar of leading loads already on the board (${c.loadsOnBoard.join(', ')}), taken as capacitance`] : []),
   ];
-  const reactors = c.reactorKvar > 0 ? `; Q_L ${fixed(c.reactorKvar, 1)} kvar of reactors added` : '';
-  return `${head} at about h = ${formula} = ${fixed(v.resonanceOrder, 2)} (× ${v.after.board.frequencyHz} Hz = ${fixed(v.resonanceOrder * v.after.board.frequencyHz, 0)} Hz); Q_C ${parts.join(' + ')}${reactors}`;
+  const reactors = c.reactorKvar > 0 ? `; Q_L = ${fixed(c.reactorKvar, 1)} kvar of reactors added` : '';
+  return `${head} at about h = ${formula} = ${fixed(v.resonanceOrder, 2)} (× ${v.after.board.frequencyHz} Hz = ${fixed(v.resonanceOrder * v.after.board.frequencyHz, 0)} Hz); Q_C = ${parts.join(' + ')}${reactors}`;
 }
 
 /** `detuned`: the bank's steps sit behind reactors, so √(S_sc/Qc) does not apply (the harmonic check covers it). */
