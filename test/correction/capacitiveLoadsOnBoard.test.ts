@@ -62,6 +62,9 @@ describe('a board led by its own fixed capacitor bank', () => {
     expect(text).toContain('√((S_sc + Q_L)/Q_C) = 11.87');
     expect(text).toContain('of leading loads already on the board (Fixed bank left on)');
     expect(text).not.toContain('not estimated');
+    // Within 10 % of the 11th: warned, naming the capacitance that resonates (none of it added here).
+    const w = report.verification.warnings.find((x) => x.code === 'resonance')!;
+    expect(w.message).toMatch(/^the board's own leading loads \(capacitance already in service\) and the supply inductance resonate near harmonic order 11\.9/);
   });
 
   it('the summary names no reactor the build does not have', () => {

@@ -149,8 +149,9 @@ export const warningText = {
   lightLoadLeading: (phases: readonly PhaseLabel[]) =>
     `at light load the fixed part makes line${phases.length > 1 ? 's' : ''} ${phases.join(', ')} lead (checked at the high end of the capacitance tolerance)`,
   voltageRise: (what: string, percent: number, limit: number) => `${what} raises the board voltage by about ${percent.toFixed(2)} %, above the ${f1(limit)} % flag level`,
-  lowResonance: (order: number) =>
-    `the bank and the supply inductance resonate near harmonic order ${order.toFixed(1)}: with harmonic-producing loads on the board this needs a harmonic study and probably a detuned bank`,
+  /** @param capacitance what resonates: the bank, the leading loads already on the board, or both */
+  lowResonance: (order: number, capacitance: 'bank' | 'board' | 'both' = 'bank') =>
+    `${capacitance === 'bank' ? 'the bank' : capacitance === 'board' ? "the board's own leading loads (capacitance already in service)" : "the bank with the board's own leading loads"} and the supply inductance resonate near harmonic order ${order.toFixed(1)}: with harmonic-producing loads on the board this needs a harmonic study and probably a detuned bank`,
   partialBalance: (negative: number, zero: number, reactors: readonly PhaseLabel[]) =>
     `the capacitor-only compensator meets the power-factor target but balances only partly (|I2|/|I1| = ${negative.toFixed(1)} %, |I0|/|I1| = ${zero.toFixed(1)} %)${reactors.length ? `; full balance needs reactors on ${reactors.join(', ')}` : ''}`,
   ctBelowLineCurrent: (primaryA: number, lineA: number) =>

@@ -191,7 +191,7 @@ export function verifyCorrection(board: Board, options: VerifyCorrectionOptions)
   const ssc = shortCircuitVA(board);
   const resonance = resonanceCapacitance(branches, after);
   const resonanceOrder = ssc !== null && resonance.totalKvar > 0 ? Math.sqrt((ssc + resonance.reactorKvar * 1000) / (resonance.totalKvar * 1000)) : null;
-  if (resonanceOrder !== null && WATCHED_ORDERS.some((h) => Math.abs(resonanceOrder - h) <= 0.1 * h)) warn('resonance', warningText.lowResonance(resonanceOrder), resonanceOrder, null);
+  if (resonanceOrder !== null && WATCHED_ORDERS.some((h) => Math.abs(resonanceOrder - h) <= 0.1 * h)) warn('resonance', warningText.lowResonance(resonanceOrder, resonance.onBoardKvar > 0 ? (resonance.addedKvar > 0 ? 'both' : 'board') : 'bank'), resonanceOrder, null);
   if (ssc === null && capacitorKvar > 0) warn('ideal-source', warningText.idealSource);
   const overloads = overloadsCaused(before, after);
   for (const o of overloads) warn('overload-caused', warningText.overloadCaused(o.message), o.value, o.threshold);
