@@ -44,6 +44,32 @@ describe('a board led by its own fixed capacitor bank', () => {
     expect(result.warnings.map((x) => x.code)).not.toContain('line-leading');
   });
 
+  it('only the line the capacitors make lead is warned: not one a line-to-line heater makes lead beside them', () => {
+    // A resistive B-C oven makes line B lead near 0.866; 6 kvar on A-N against a 4 kW, PF 0.9 lagging load
+    // (1.9 kvar) makes line A lead: P 4, Q ≈ 1.9 − 6 = −4.1 kvar, PF ≈ 0.70 leading; C lags.
+    const mixed = normaliseBoard(
+      parseBoard({
+        supply,
+        loads: [
+          { name: 'Drying oven', connection: 'B-C', kW: 12, pf: 1 },
+          { name: 'Dye pumps', connection: 'A-N', kW: 4, pf: 0.9 },
+          { name: 'Pump capacitor', connection: 'A-N', kW: 0, kvar: -6, model: 'constant-impedance' },
+          { name: 'Lamps', connection: 'C-N', kW: 2, pf: 0.9 },
+        ],
+      }),
+    );
+    const result = solveBoardModel(mixed);
+    const [a, b] = result.phases;
+    expect(b!.sense).toBe('leading');
+    expect(b!.pf!).toBeLessThan(0.9);
+    expect(a!.sense).toBe('leading');
+    expect(Math.abs(a!.pf! - 0.70)).toBeLessThan(0.02);
+    const w = result.warnings.filter((x) => x.code === 'line-leading');
+    expect(w).toHaveLength(1);
+    expect(w[0]!.message).toMatch(/^line A at PF 0\.\d{3} leads \(below 0\.90 leading/);
+    expect(w[0]!.value).toBeCloseTo(a!.pf!, 12);
+  });
+
   it('the correction works the supply resonance from the bank already on the board and the reactors it adds', () => {
     const report = correctBoard(board, { arrangement: 'balancing-compensator' });
     const c = report.verification.resonanceCapacitance;

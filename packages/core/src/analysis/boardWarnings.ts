@@ -287,7 +287,12 @@ function leadingLineWarnings(phases: readonly PhaseReading[], loads: readonly Lo
   if (capacitive.length === 0) return [];
   const leadingKvar = capacitive.reduce((s, l) => s - l.kvar, 0);
   const limit = WARNING_THRESHOLDS.leadingLinePf;
-  const leading = phases.filter((p) => p.kW > 0 && p.sense === 'leading' && p.pf !== null && p.pf < limit);
+  // The capacitive loads' vars on each line (a line-to-line branch half to each of its lines): a line is
+  // warned only where it would not lead without them, so a small capacitor beside a line that a
+  // line-to-line load makes lead is not blamed for it.
+  const capacitiveOn = (phase: string) =>
+    capacitive.reduce((sum, l) => sum + l.branches.reduce((t, b) => t + (b.kvar < 0 && (b.from === phase || b.to === phase) ? (-b.kvar * (b.to === 'N' || b.to.startsWith('star') ? 1 : 0.5)) : 0), 0), 0);
+  const leading = phases.filter((p) => p.kW > 0 && p.sense === 'leading' && p.pf !== null && p.pf < limit && p.kvar + capacitiveOn(p.phase) >= 0);
   if (leading.length === 0) return [];
   const lines = leading.map((p) => `${label(p.phase)} at PF ${p.pf!.toFixed(3)}`);
   const names = capacitive.map((l) => `"${l.name}"`).join(', ');
