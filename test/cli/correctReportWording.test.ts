@@ -86,9 +86,12 @@ describe('correct report wording', () => {
     const zero = c.outcomes.filter((o) => o.figures && o.figures.cost === 0);
     expect(zero.length).toBeGreaterThanOrEqual(1);
     expect(c.why).not.toMatch(/cost 0\.0|costs 0\.0/);
-    expect(c.why).toMatch(/with nothing added to the board|also adds nothing/);
-    // Something that is bought still shows its cost.
-    for (const o of c.outcomes.filter((o) => o.figures && o.figures.cost > 0 && o.report?.status === 'meets-target')) expect(c.why).toContain(`costs ${o.figures!.cost.toFixed(1)}`);
+    // A bank sized to nothing is the board meeting the target as it is: the verdict says so, as a
+    // board that meets it outright reads (it read "meets the target with nothing added" before).
+    for (const o of zero.filter((o) => o.arrangement !== 'balancing-compensator')) expect(o.report!.status).toBe('already-meets-target');
+    expect(c.why).toMatch(/^star bank: the board already meets the target, nothing to add/);
+    // Nothing to add ends the recommendation: the compensator's cost (something bought) is not weighed against it.
+    expect(c.why).toBe('star bank: the board already meets the target, nothing to add');
   });
 
   it('the recommendation says when an arrangement makes |I2|/|I1| notably worse (> 5 points), and so do the warnings', () => {

@@ -1,6 +1,6 @@
 /** CorrectionComparison → the side-by-side report of `trivar correct` without an arrangement (fits 100 columns). */
 import { boundFigure } from './correctionReport.js';
-import { arrangementNames, type Arrangement, type Region, type ArrangementOutcome, type CorrectionComparison, type HarmonicComparison, signedPfText } from '@trivar/core';
+import { arrangementNames, exemptLeadingLines, lossesPlaceWords, exemptLeadingWords, labellerOf, type Arrangement, type Region, type ArrangementOutcome, type CorrectionComparison, type HarmonicComparison, signedPfText } from '@trivar/core';
 import { fixed, renderTable, section } from './textTable.js';
 import { headerLines } from './solveReport.js';
 import { renderCorrectionReport, renderNothingToAdd } from './correctionReport.js';
@@ -72,6 +72,21 @@ function row(o: ArrangementOutcome, names: Readonly<Record<Arrangement, string>>
   ];
 }
 
+/**
+ * The lines an arrangement's verdict holds only to lead no more than before (they led before correction,
+ * the same lines whichever arrangement is judged), named under the table: a "meets" beside a line's PF of
+ * 0.866 leading says why. Each arrangement that judges lines so is named.
+ */
+function exemptFootnote(c: CorrectionComparison): string[] {
+  const judged = c.outcomes.filter((o) => o.report && o.report.status.startsWith('meets') && exemptLeadingLines(o.report.verification.check).length);
+  const v = judged[0]?.report?.verification;
+  if (!v) return [];
+  const compared = comparedBoard(c);
+  const label = labellerOf(v.before.conventions.phaseNames);
+  const lines = exemptLeadingLines(v.check).map((p) => ({ line: label(p), pfBefore: (v.metering?.lines ?? v.lines).find((l) => l.phase === p)!.pf.before, pfAfter: null }));
+  return [`exempt (${judged.map((o) => arrangementNames(compared.system, compared.region)[o.arrangement]).join(', ')}): ${exemptLeadingWords(lines)}`];
+}
+
 export function renderComparisonReport(c: CorrectionComparison): string {
   const failing = failingHarmonicCheck(c);
   const first = c.outcomes.find((o) => o.report)?.report;
@@ -87,7 +102,7 @@ export function renderComparisonReport(c: CorrectionComparison): string {
   const parts: string[] = [];
   if (first) {
     parts.push(headerLines(first.verification.before).slice(0, 2).join('\n'));
-    parts.push(wrapText(`target: ${first.target.statement}; PF ≥ ${boundFigure(first.target.pf)}`, '', '  '));
+    parts.push(wrapText(`target: ${first.target.statement}; PF ≥ ${boundFigure(first.target.pf)}${first.target.leading === 'never' ? ', never leading' : ', leading allowed'}`, '', '  '));
   }
   parts.push(
     section('Arrangements compared (each built from units and verified by re-solving the board)') +
@@ -108,8 +123,9 @@ export function renderComparisonReport(c: CorrectionComparison): string {
       ) +
       '\n' +
       [
-        `${names['star-bank'] === TWO_LINE_TABLE_NAMES['star-bank'] ? `${TWO_LINE_LEGEND}; ` : ''}delivered: kvar at the solved voltage (+L: reactor kvar); nom C: at nominal capacitance only;${c.outcomes.some((o) => o.report?.status === 'no-suitable-units' && (o.report.selection?.units ?? 0) > 0) ? ' part built: no unit suits some branches, the rest built without them;' : ''}${c.outcomes.some(overloading) ? ' overloads: meets the target, but with it in a conductor or the supply is above its rating (see Recommendation);' : ''}${failing.size ? ' fails check: meets the target, but no variant passes the harmonic check;' : ''} plate: nameplate kvar; PF after: the PF the target is defined on (per-line: the lowest line); neutral: A after; loss: source + feeder after`,
+        `${names['star-bank'] === TWO_LINE_TABLE_NAMES['star-bank'] ? `${TWO_LINE_LEGEND}; ` : ''}delivered: kvar at the solved voltage (+L: reactor kvar); nom C: at nominal capacitance only;${c.outcomes.some((o) => o.report?.status === 'no-suitable-units' && (o.report.selection?.units ?? 0) > 0) ? ' part built: no unit suits some branches, the rest built without them;' : ''}${c.outcomes.some(overloading) ? ' overloads: meets the target, but with it in a conductor or the supply is above its rating (see Recommendation);' : ''}${failing.size ? ' fails check: meets the target, but no variant passes the harmonic check;' : ''} plate: nameplate kvar; PF after: the PF the target is defined on (per-line: the lowest line); neutral: A after; loss: ${lossesPlaceWords(first?.verification.before.incomer ?? null)} after`,
         ...c.outcomes.filter((o) => o.notApplicable).map((o) => `${fullNames[o.arrangement]}: ${o.notApplicable}`),
+        ...exemptFootnote(c),
       ]
         .map((l) => wrapText(l, '  ', '    '))
         .join('\n'),

@@ -1,5 +1,5 @@
 /** CorrectionReport → the human-readable report of `trivar correct` (fits 100 columns). */
-import { arrangementDescriptions, arrangementNames, BUILD_VERDICT_WORDS, CORRECTION_DEFAULTS, labellerOf, meteringPointWords, reactorChanges, smallBranchWords, sparedBranchesWords, type BankSelection, type BankStep, type BeforeAfter, type BranchSizing, type CompensatorSizing, type ControllerSettings, type CorrectionReport, type CorrectionVerification, type FewerBranchesBuild, type PhaseId, type RoundingBesideReactors, type PhaseLabeller, signedPfText, linePfText, exportingLinesNote, starWordOf, type StarWord } from '@trivar/core';
+import { exemptLeadingLines, lossesPlaceWords, arrangementDescriptions, arrangementNames, BUILD_VERDICT_WORDS, CORRECTION_DEFAULTS, labellerOf, meteringPointWords, reactorChanges, smallBranchWords, sparedBranchesWords, type BankSelection, type BankStep, type BeforeAfter, type BranchSizing, type CompensatorSizing, type ControllerSettings, type CorrectionReport, type CorrectionVerification, type FewerBranchesBuild, type PhaseId, type RoundingBesideReactors, type PhaseLabeller, signedPfText, linePfText, exportingLinesNote, starWordOf, type StarWord } from '@trivar/core';
 import { fixed, renderTable, section } from './textTable.js';
 import { headerLines } from './solveReport.js';
 import { wrapText } from './wrapText.js';
@@ -50,19 +50,39 @@ function elementText(b: BranchSizing): string {
   return `L ${fixed(b.inductanceMH ?? 0, 2)} mH`;
 }
 
+/** A voltage as a header shows it: 400 V, 230.9 V. */
+const voltsText = (v: number): string => v.toFixed(1).replace(/\.0$/, '');
+
+/**
+ * The voltage a sizing's kvar column is taken at, read back from each branch (kvar = B·V²): the model's
+ * nominal voltage, where the loads are rated (230.9 V on a 230/400 V board), which the unit tables after
+ * it do not use (they are at the system's 230 V), so the header names it. A table with star and delta
+ * branches (a compensator) names both in a note.
+ */
+function sizingVoltages(branches: readonly BranchSizing[]): { header: string; note: string } {
+  const star = (b: BranchSizing) => /-(N|star)$/.test(b.branch);
+  const voltsOf = (part: readonly BranchSizing[]) => [...new Set(part.filter((b) => b.susceptanceS !== 0).map((b) => voltsText(Math.sqrt((b.kvarAtNominalV * 1000) / b.susceptanceS))))];
+  const ln = voltsOf(branches.filter(star));
+  const ll = voltsOf(branches.filter((b) => !star(b)));
+  if (ln.length + ll.length === 1) return { header: `kvar@${[...ln, ...ll][0]} V`, note: '' };
+  if (ln.length === 1 && ll.length === 1) return { header: 'kvar@nom V', note: `\n  (kvar@nom V: at ${ln[0]} V across a line-to-neutral branch, ${ll[0]} V across a line-to-line branch)` };
+  return { header: 'kvar@nom V', note: '' };
+}
+
 /** The continuous (ideal-size) elements: what each branch needs before units are chosen. */
 function sizingTable(branches: readonly BranchSizing[], label: PhaseLabeller): string {
+  const volts = sizingVoltages(branches);
   return renderTable(
     [
       { header: 'branch', align: 'left' },
       { header: 'element', align: 'left' },
-      { header: 'kvar@nom V' },
+      { header: volts.header },
       { header: 'V applied' },
       { header: 'kvar@applied' },
       { header: 'A' },
     ],
     branches.map((b) => [label(b.branch), elementText(b), fixed(b.kvarAtNominalV, 2), fixed(b.appliedV, 1), fixed(b.kvarAtAppliedV, 2), fixed(b.currentA, 2)]),
-  );
+  ) + volts.note;
 }
 
 /** The branches of a step, short: a three-branch step by its connection. */
@@ -223,7 +243,7 @@ function boardLines(v: CorrectionVerification): string {
     out.push(`voltage unbalance |V2|/|V1|  ${arrow(v.unbalance.voltageFactorPercent, 2, ' %')}`);
   }
   out.push(
-    `losses (source + feeder)     ${fixed(v.before.losses.totalKW, 3)} kW → ${fixed(v.after.losses.totalKW, 3)} kW (${signed(v.lossReductionKW, 3, 'kW', 'saves', 'adds')})`,
+    `${`losses (${lossesPlaceWords(v.before.incomer)})`.padEnd(28)} ${fixed(v.before.losses.totalKW, 3)} kW → ${fixed(v.after.losses.totalKW, 3)} kW (${signed(v.lossReductionKW, 3, 'kW', 'saves', 'adds')})`,
   );
   const worstDrop = (r: CorrectionVerification['before']) => Math.max(...r.phases.map((p) => p.voltageDropPercent));
   out.push(`largest voltage drop         ${fixed(worstDrop(v.before), 2)} % → ${fixed(worstDrop(v.after), 2)} %`);
@@ -246,6 +266,24 @@ function highEndWords(check: { readonly leadingLines: readonly PhaseId[]; readon
   return 'no line leads';
 }
 
+/** The supply resonance line: its estimate and what it is worked from, or why there is none. */
+function resonanceWords(v: CorrectionVerification, detuned: boolean): string {
+  const head = 'parallel resonance with the supply';
+  const c = v.resonanceCapacitance;
+  if (v.resonanceOrder === null) {
+    if (detuned) return `${head}: a detuned bank keeps it below its tuning order (see the harmonic check)`;
+    if (v.voltageRise.shortCircuitKVA === null) return `${head}: not estimated, the source is ideal (no impedance to resonate with)`;
+    return `${head}: none, no capacitors are added and no load on the board draws leading vars`;
+  }
+  const formula = c.reactorKvar > 0 ? '√((S_sc + Q_L)/Q_C)' : '√(S_sc/Q_C)';
+  const parts = [
+    ...(c.addedKvar > 0 ? [`${fixed(c.addedKvar, 1)} kvar added`] : []),
+    ...(c.onBoardKvar > 0 ? [`${fixed(c.onBoardKvar, 1)} kvar of leading loads already on the board (${c.loadsOnBoard.join(', ')}), taken as capacitance`] : []),
+  ];
+  const reactors = c.reactorKvar > 0 ? `; Q_L = ${fixed(c.reactorKvar, 1)} kvar of reactors added` : '';
+  return `${head} at about h = ${formula} = ${fixed(v.resonanceOrder, 2)} (× ${v.after.board.frequencyHz} Hz = ${fixed(v.resonanceOrder * v.after.board.frequencyHz, 0)} Hz); Q_C = ${parts.join(' + ')}${reactors}`;
+}
+
 /** `detuned`: the bank's steps sit behind reactors, so √(S_sc/Qc) does not apply (the harmonic check covers it). */
 function checksBlock(v: CorrectionVerification, detuned = false): string {
   const out: string[] = [];
@@ -258,13 +296,7 @@ function checksBlock(v: CorrectionVerification, detuned = false): string {
   out.push(
     `steady voltage rise: ${vr.estimatePercent === null ? 'ideal source (none)' : `≈ Qc/S_sc = ${fixed(vr.capacitorKvar, 1)} kvar (at the corrected board's voltage) / ${fixed(vr.shortCircuitKVA ?? 0, 0)} kVA = ${fixed(vr.estimatePercent, 2)} %`}; solved ${fixed(vr.solvedPercent, 2)} %; flag above ${vr.limitPercent} %${vr.flagged ? '  ← FLAGGED' : ''}`,
   );
-  out.push(
-    v.resonanceOrder === null
-      ? detuned
-        ? 'parallel resonance with the supply: a detuned bank keeps it below its tuning order (see the harmonic check)'
-        : 'parallel resonance with the supply: not estimated (ideal source or no capacitors)'
-      : `parallel resonance with the supply at about h = √(S_sc/Qc) = ${fixed(v.resonanceOrder, 2)} (× ${v.after.board.frequencyHz} Hz = ${fixed(v.resonanceOrder * v.after.board.frequencyHz, 0)} Hz)`,
-  );
+  out.push(resonanceWords(v, detuned));
   if (v.lightLoad) {
     const ll = v.lightLoad;
     const lines = ll.lines.map((l) => `${label(l.phase)} ${pfFigure(l.pf)} ${senseWord(l.sense)}`.trim()).join(', ');
@@ -400,8 +432,14 @@ export function renderNothingToAdd(r: CorrectionReport, studied: string): string
   return `${parts.join('\n')}\n`;
 }
 
+/** Lines that led before correction are held to another rule (the verdict says why): the target line names them. */
+const exemptNote = (r: CorrectionReport): string => {
+  const lines = exemptLeadingLines(r.verification.check).map(labelsOf(r.verification));
+  return lines.length ? ` (except line${lines.length > 1 ? 's' : ''} ${lines.join(', ')}, which already led before correction: held to lead no more than before)` : '';
+};
+
 const targetWords = (r: CorrectionReport): string =>
-  `${r.target.statement}; PF ≥ ${boundFigure(r.target.pf)}${r.target.leading === 'never' ? ', never leading' : ', leading allowed'}${r.target.maxLaggingPf === null ? '' : `, at most ${fixed(r.target.maxLaggingPf, 3)} lagging`}${r.target.measuredAt === undefined ? '' : `; measured at ${meteringPointWords(r.target.measuredAt)}`}`;
+  `${r.target.statement}; PF ≥ ${boundFigure(r.target.pf)}${r.target.leading === 'never' ? ', never leading' : ', leading allowed'}${exemptNote(r)}${r.target.maxLaggingPf === null ? '' : `, at most ${fixed(r.target.maxLaggingPf, 3)} lagging`}${r.target.measuredAt === undefined ? '' : `; measured at ${meteringPointWords(r.target.measuredAt)}`}`;
 
 export function renderCorrectionReport(r: CorrectionReport): string {
   if (r.status === 'already-meets-target') return renderNothingToAdd(r, `a ${arrangementNames(r.verification.before.board.system, r.verification.before.conventions.region)[r.arrangement]}`);

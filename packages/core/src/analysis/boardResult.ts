@@ -115,6 +115,7 @@ export interface UnbalanceReading {
   readonly motorDeratingFactor: number | null;
 }
 
+/** Losses in what feeds the board: source and feeder on a main or single board; on a sub-board, its own feeder only (sourceKW 0). */
 export interface LossReading {
   readonly sourceKW: number;
   readonly lineFeederKW: number;

@@ -26,6 +26,13 @@ export const WARNING_THRESHOLDS = {
    * device's rated current, I_B ≤ I_n (IEC 60364-4-43, 433.1; from memory): 100 %.
    */
   continuousBreakerShare: 0.8,
+  /**
+   * A line drawing active power at a leading PF below this, on a board with loads of its own that draw
+   * leading vars (a fixed capacitor bank written as a load), is warned: the capacitance is more than
+   * the board's loads need, so the voltage rises and the supply sees capacitive vars. Common practice,
+   * no source (many supply agreements ask for a PF of 0.9 or better, lagging or leading).
+   */
+  leadingLinePf: 0.9,
 } as const;
 
 /** The open-neutral study's band as limits: its flags judged, and its figures printed, as every voltage verdict's are. */
@@ -271,6 +278,7 @@ export function boardWarnings(input: {
         value: u.loadingPercent,
         threshold: 100,
       });
+  out.push(...leadingLineWarnings(phases, loads, label));
   const t = input.transformer;
   if (t && t.loadingPercent > 100)
     out.push({
@@ -280,6 +288,35 @@ export function boardWarnings(input: {
       threshold: 100,
     });
   return out;
+}
+
+/**
+ * Lines that lead below WARNING_THRESHOLDS.leadingLinePf because the board's own loads draw leading
+ * vars. A line a line-to-line load alone makes lead (its PF per line is a matter of the phase angle,
+ * not of capacitance) is not warned: nothing on the board is capacitive then.
+ */
+function leadingLineWarnings(phases: readonly PhaseReading[], loads: readonly LoadReading[], label: (t: string) => string): BoardWarning[] {
+  const capacitive = loads.filter((l) => l.origin === 'board' && l.energised && l.sense === 'leading' && l.kvar < 0);
+  if (capacitive.length === 0) return [];
+  const leadingKvar = capacitive.reduce((s, l) => s - l.kvar, 0);
+  const limit = WARNING_THRESHOLDS.leadingLinePf;
+  // The capacitive loads' vars on each line (a line-to-line branch half to each of its lines): a line is
+  // warned only where it would not lead without them, so a small capacitor beside a line that a
+  // line-to-line load makes lead is not blamed for it.
+  const capacitiveOn = (phase: string) =>
+    capacitive.reduce((sum, l) => sum + l.branches.reduce((t, b) => t + (b.kvar < 0 && (b.from === phase || b.to === phase) ? (-b.kvar * (b.to === 'N' || b.to.startsWith('star') ? 1 : 0.5)) : 0), 0), 0);
+  const leading = phases.filter((p) => p.kW > 0 && p.sense === 'leading' && p.pf !== null && p.pf < limit && p.kvar + capacitiveOn(p.phase) >= 0);
+  if (leading.length === 0) return [];
+  const lines = leading.map((p) => `${label(p.phase)} at PF ${p.pf!.toFixed(3)}`);
+  const names = capacitive.map((l) => `"${l.name}"`).join(', ');
+  return [
+    {
+      code: 'line-leading',
+      message: `line${leading.length > 1 ? 's' : ''} ${lines.join(', ')} lead${leading.length > 1 ? '' : 's'} (below ${limit.toFixed(2)} leading, common practice): the board's leading loads (${names}, ${fmt(leadingKvar, 1)} kvar) give more reactive power than its other loads draw. The voltage rises, the supply sees capacitive vars, and capacitance with the supply inductance can resonate with harmonics; switch or reduce the capacitors to follow the load`,
+      value: Math.min(...leading.map((p) => p.pf!)),
+      threshold: limit,
+    },
+  ];
 }
 
 /** The share of its breaker rating a load may draw, and that rule in words for the warning. */

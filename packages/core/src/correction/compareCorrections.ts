@@ -39,6 +39,7 @@ export interface ArrangementFigures {
   readonly targetPfAfter: number | null;
   readonly neutralCurrentA: number | null;
   readonly negativeSequencePercent: number | null;
+  /** Losses after, kW: source and feeder of a main board; a sub-board's own feeder (BoardResult.losses). */
   readonly lossesKW: number;
   /** Cost figure used to rank (kvar-equivalents). */
   readonly cost: number;

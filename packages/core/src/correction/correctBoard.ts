@@ -19,7 +19,7 @@ import { defaultPractice, selectBankUnits } from './selectBankUnits.js';
 import { verifyCorrection, type VerifyCorrectionOptions } from './verifyCorrection.js';
 import { scaleBoardLoads } from './scaleBoardLoads.js';
 import type { BankSelection, BankSizing, BuildVerdict, CompensatorSizing, CorrectionReport, CorrectionStatus, CorrectionVerification, CorrectionWarning, FewerBranchesBuild, RoundingBesideReactors, SizedEquipment } from './correctionResult.js';
-import { arrangementNames, correctionCautions, infeasibleReason, MODEL_CAUTION, meteringWarning, reportSummary, warningText } from './correctionWording.js';
+import { arrangementNames, correctionCautions, exemptLeadingLines, exemptLeadingWords, infeasibleReason, MODEL_CAUTION, meteringWarning, reportSummary, warningText } from './correctionWording.js';
 import { definedOnly } from './_internal/optionSchemas.js';
 import { assertViableBoard } from '../analysis/viableOperatingPoint.js';
 import { CORRECTION_DEFAULTS, toleranceFractions } from './correctionDefaults.js';
@@ -28,6 +28,7 @@ import { conventionsOf } from '../board/conventions/boardConventions.js';
 import { labellerOf, type PhaseLabeller } from '../board/conventions/phaseNames.js';
 import { regionWords, starWordOf } from '../board/conventions/regionWords.js';
 import { assertBoardModel } from '../board/modelGuards.js';
+import { emptyBelowKvar } from './_internal/branchReadings.js';
 
 /** @param use `limitsOnly` for the light-load sizing, read only for its limits (see ResolvedBankOptions) */
 function sizeArrangement(board: Board, spec: CorrectionSpec & { arrangement: Arrangement }, use: { limitsOnly?: boolean; heldBranches?: readonly string[] } = {}): BankSizing | CompensatorSizing {
@@ -81,12 +82,17 @@ function starPointWarnings(sizing: BankSizing | CompensatorSizing, board: Board)
 const buildable = (sizing: BankSizing | CompensatorSizing): SizedEquipment =>
   sizing.arrangement === 'balancing-compensator' ? (sizing.recommended === 'ideal' ? sizing.ideal : sizing.capacitorOnly) : sizing;
 
-/** The reactors of the equipment as built, for the one-line summary. */
+/**
+ * The reactors of the equipment as built, for the one-line summary. A branch the sizing reads as empty
+ * (a re-fit's last bits where the answer is zero) is no reactor, as in the branch tables; nor is one
+ * that would print as 0.00 kvar: nobody builds it.
+ */
 function reactorWords(equipment: readonly EquipmentGroup[], label: PhaseLabeller): string {
-  const reactors = equipment.flatMap((g) => g.branches).filter((b) => b.susceptanceS < 0);
-  return reactors.length
-    ? `, with ${reactors.map((b) => `a ${Math.abs(kvarFromSusceptance(b.susceptanceS, b.vNominal)).toFixed(2)} kvar reactor on ${label(b.branch)}`).join(' and ')}`
-    : '';
+  const branches = equipment.flatMap((g) => g.branches);
+  const kvarOf = (b: (typeof branches)[number]) => Math.abs(kvarFromSusceptance(b.susceptanceS, b.vNominal));
+  const empty = Math.max(emptyBelowKvar(branches.reduce((sum, b) => sum + kvarOf(b), 0)), 0.005);
+  const reactors = branches.filter((b) => b.susceptanceS < 0 && kvarOf(b) >= empty);
+  return reactors.length ? `, with ${reactors.map((b) => `a ${kvarOf(b).toFixed(2)} kvar reactor on ${label(b.branch)}`).join(' and ')}` : '';
 }
 
 /**
@@ -270,6 +276,10 @@ export function correctBoard(board: Board, spec: unknown): CorrectionReport {
           ),
         );
     }
+  } else if (nothingBuilt(recommended)) {
+    // The sizing found every branch empty: the board meets the target as it is, and that is the verdict
+    // (the one a comparison gives), not "meets the target with 0.00 kvar" and cautions for a bank not added.
+    status = 'already-meets-target';
   } else status = chosen.verdict === 'meets-at-nominal' ? 'meets-target-at-nominal-capacitance' : 'meets-target';
   // "A line that already led may not lead more" is meant for the one line a line-to-line load makes
   // lead; where every judged line led before (other banks in service, an over-sized fixed bank) and
@@ -311,6 +321,8 @@ export function correctBoard(board: Board, spec: unknown): CorrectionReport {
           ? reportSummary[status](what, delivered, nameplate, (selection?.unbuildable?.branches ?? []).map(label))
           : reportSummary[status](what, delivered, nameplate)) +
       reactorWords(recommended, label) +
+      // A line that led before is held to another rule than the target as written: the verdict says which and why.
+      (status.startsWith('meets') ? exemptWords(verification, label) : '') +
       // Meeting the PF target says nothing of what the equipment overloads: the summary says it beside the verdict.
       (verification.overloadsCaused.length ? `; but with it in, ${verification.overloadsCaused.map((o) => o.message).join('; ')}` : ''),
     reasons,
@@ -327,6 +339,25 @@ export function correctBoard(board: Board, spec: unknown): CorrectionReport {
     // Nothing to install: the capacitor cautions (discharge, inrush, resonance) are for equipment being added.
     cautions: status === 'already-meets-target' ? [MODEL_CAUTION] : correctionCautions(regionWords(conventionsOf(board).region, board.system).groundWord),
   };
+}
+
+/** The lines held only to lead no more than before (they led before correction), for the verdict; '' when none. */
+function exemptWords(v: CorrectionVerification, label: PhaseLabeller): string {
+  // The figures the target was judged on: the metering point's where it is measured elsewhere.
+  const judgedLines = v.metering?.lines ?? v.lines;
+  const lines = exemptLeadingLines(v.check).map((p) => {
+    const line = judgedLines.find((l) => l.phase === p)!;
+    return { line: label(p), pfBefore: line.pf.before, pfAfter: line.pf.after };
+  });
+  return lines.length ? `; ${exemptLeadingWords(lines)}` : '';
+}
+
+/** True when the equipment as built has no element worth building (every branch read as empty, as the branch tables read it). */
+function nothingBuilt(equipment: readonly EquipmentGroup[]): boolean {
+  const branches = equipment.flatMap((g) => g.branches);
+  const kvarOf = (b: (typeof branches)[number]) => Math.abs(kvarFromSusceptance(b.susceptanceS, b.vNominal));
+  const empty = emptyBelowKvar(branches.reduce((sum, b) => sum + kvarOf(b), 0));
+  return branches.every((b) => kvarOf(b) < empty);
 }
 
 /** Lines short of their minimum PF on a board whose every judged line led before correction; empty otherwise. */

@@ -374,6 +374,20 @@ export interface ToleranceCase {
   readonly check: TargetCheck;
 }
 
+/** The capacitance (and added reactors) a supply resonance estimate is worked from, kvar at the solved voltages. */
+export interface ResonanceCapacitance {
+  /** Capacitors of the equipment added. */
+  readonly addedKvar: number;
+  /** Leading vars of the board's own loads (a fixed bank written as a load), taken as capacitance. */
+  readonly onBoardKvar: number;
+  /** The board's loads counted in `onBoardKvar`, by name. */
+  readonly loadsOnBoard: readonly string[];
+  /** Reactors of the equipment added (positive). */
+  readonly reactorKvar: number;
+  /** addedKvar + onBoardKvar. */
+  readonly totalKvar: number;
+}
+
 export interface VoltageRise {
   /** Net capacitive output considered, kvar. */
   readonly capacitorKvar: number;
@@ -429,12 +443,22 @@ export interface CorrectionVerification {
   } | null;
   /** Apparent power no longer drawn (before − after), kVA. */
   readonly releasedKVA: { readonly effective: number | null; readonly vector: number; readonly arithmetic: number; readonly source: number };
-  /** Loss reduction in source and feeder (before − after), kW. */
+  /**
+   * Loss reduction (before − after), kW, in the losses `before.losses`/`after.losses` hold: source and
+   * feeder on a main or single board; on a sub-board of an installation only its own feeder (the
+   * installation's total is `InstallationEffect`'s).
+   */
   readonly lossReductionKW: number;
   readonly tolerance: { readonly low: ToleranceCase; readonly high: ToleranceCase };
   readonly voltageRise: VoltageRise;
-  /** Parallel resonance with the supply, h_r = √(S_sc/Qc); null on an ideal source or without capacitors. */
+  /**
+   * Parallel resonance with the supply, h_r = √((S_sc + Q_L)/Q_C), Q_C the capacitors added and the
+   * leading loads already on the board, Q_L the reactors added (√(S_sc/Q_C) without reactors); null on
+   * an ideal source or with no capacitance at all.
+   */
   readonly resonanceOrder: number | null;
+  /** What `resonanceOrder` is worked from, kvar at the solved voltages with the equipment in. */
+  readonly resonanceCapacitance: ResonanceCapacitance;
   readonly lightLoad: LightLoadCheck | null;
   /**
    * What the equipment overloads that was not overloaded without it (a line, the neutral, the supply

@@ -3,10 +3,11 @@
  * reasons, warnings and cautions. Plain text; the CLI decides how to show it.
  */
 import type { PhaseLabel } from '../board/conventions/phaseNames.js';
+import type { PhaseId } from '../board/boardModel.js';
 import type { PowerFactorSense } from '../analysis/boardResult.js';
 import type { Arrangement, TargetDefinition } from './correctionSpec.js';
 import type { BuildVerdict, SmallBranch, SparedBranch, TargetName } from './correctionResult.js';
-import { argumentIssueError, checkListArgument, checkNumberArgument, checkObjectArgument, checkWordArgument } from '../_internal/argumentChecks.js';
+import { argumentIssueError, checkListArgument, checkNumberArgument, checkObjectArgument, checkTextArgument, checkWordArgument } from '../_internal/argumentChecks.js';
 import { starWordOf, type StarWord } from '../board/conventions/regionWords.js';
 import { REGIONS, type Region } from '../board/conventions/region.js';
 import { SYSTEMS } from '../board/boardRanges.js';
@@ -154,8 +155,9 @@ export const warningText = {
   lightLoadLeading: (phases: readonly PhaseLabel[]) =>
     `at light load the fixed part makes line${phases.length > 1 ? 's' : ''} ${phases.join(', ')} lead (checked at the high end of the capacitance tolerance)`,
   voltageRise: (what: string, percent: number, limit: number) => `${what} raises the board voltage by about ${percent.toFixed(2)} %, above the ${f1(limit)} % flag level`,
-  lowResonance: (order: number) =>
-    `the bank and the supply inductance resonate near harmonic order ${order.toFixed(1)}: with harmonic-producing loads on the board this needs a harmonic study and probably a detuned bank`,
+  /** @param capacitance what resonates: the bank, the leading loads already on the board, or both */
+  lowResonance: (order: number, capacitance: 'bank' | 'board' | 'both' = 'bank') =>
+    `${capacitance === 'bank' ? 'the bank' : capacitance === 'board' ? "the board's own leading loads (capacitance already in service)" : "the bank with the board's own leading loads"} and the supply inductance resonate near harmonic order ${order.toFixed(1)}: with harmonic-producing loads on the board this needs a harmonic study and probably a detuned bank`,
   partialBalance: (negative: number, zero: number, reactors: readonly PhaseLabel[]) =>
     `the capacitor-only compensator meets the power-factor target but balances only partly (|I2|/|I1| = ${negative.toFixed(1)} %, |I0|/|I1| = ${zero.toFixed(1)} %)${reactors.length ? `; full balance needs reactors on ${reactors.join(', ')}` : ''}`,
   ctBelowLineCurrent: (primaryA: number, lineA: number) =>
@@ -302,6 +304,40 @@ export const selectionWording = {
   /** The cost of a detuned bank: its capacitors' real nameplate and its detuning reactors, counted as a compensator's reactors are. */
   detunedCostStatement: (unitCostKvar: number, percent: number, reactorFactor: number) =>
     `cost = nameplate kvar of the capacitors + ${unitCostKvar} kvar-equivalent per unit bought + the ${percent} % detuning reactors at ${reactorFactor} × their kvar (${percent} % of the capacitors' nameplate); the units were chosen as their fundamental equivalents behind the reactors`,
+};
+
+/**
+ * The lines a target holds only to "lead no more than before": they led before correction, and adding
+ * capacitors can only add to a lead, so the target's PF and "never leading" cannot apply there.
+ * @example exemptLeadingWords([{ line: 'B', pfBefore: 0.864, pfAfter: 0.866 }])
+ */
+export const exemptLeadingWords = (lines: readonly { line: PhaseLabel; pfBefore: number | null; pfAfter: number | null }[]): string => {
+  checkListArgument(lines, 'lines', 'the exempt lines, at least one { line, pfBefore, pfAfter }', (l) => typeof l === 'object' && l !== null && typeof (l as { line?: unknown }).line === 'string');
+  if (lines.length === 0) throw argumentIssueError('lines', 'the exempt lines, at least one { line, pfBefore, pfAfter }', lines);
+  const many = lines.length > 1;
+  const figures = lines.map((l) => `${many ? `${l.line} ` : ''}${l.pfBefore === null ? 'no current' : `PF ${f3(l.pfBefore)} leading`}${l.pfAfter === null ? '' : ` before, ${f3(l.pfAfter)} after`}`).join('; ');
+  return `line${many ? 's' : ''} ${lines.map((l) => l.line).join(', ')} already led before correction (${figures}): capacitors cannot stop a leading line leading, so ${many ? 'they are' : 'it is'} held only to lead no more than before, not to the PF or "never leading" of the target`;
+};
+
+/**
+ * Where the losses a correction compares are: the source and feeder of a main (or single) board; on a
+ * sub-board only its own feeder from the board feeding it (the installation's total is the installation
+ * effect's). `incomer` is the sub-board's `BoardResult.incomer`, null on a main board.
+ */
+export const lossesPlaceWords = (incomer: { readonly fedFrom: string } | null): string => {
+  if (incomer !== null) {
+    checkObjectArgument(incomer, 'incomer', 'a sub-board\'s incomer { fedFrom } (verification.before.incomer), or null for a main board', ['fedFrom']);
+    checkTextArgument(incomer.fedFrom, 'incomer.fedFrom', 'the name of the board feeding it');
+  }
+  return incomer ? `its feeder from ${incomer.fedFrom}` : 'source + feeder';
+};
+
+/** The lines a verdict passes only under the "lead no more than before" rule: they led before correction and still lead. */
+export const exemptLeadingLines = (check: { readonly leadingBefore: readonly PhaseId[]; readonly lines: readonly { readonly phase: PhaseId; readonly sense: string }[] }): PhaseId[] => {
+  checkObjectArgument(check, 'check', 'a correction check (verification.check) with leadingBefore and lines', ['leadingBefore', 'lines']);
+  checkListArgument(check.leadingBefore, 'check.leadingBefore', 'the lines that led before correction');
+  checkListArgument(check.lines, 'check.lines', 'the lines judged', (l) => typeof l === 'object' && l !== null);
+  return check.leadingBefore.filter((p) => check.lines.find((l) => l.phase === p)?.sense === 'leading');
 };
 
 const bankWords = (delivered: number, nameplate: number) => `${delivered.toFixed(2)} kvar delivered (${nameplate.toFixed(2)} kvar nameplate)`;

@@ -17,7 +17,7 @@ import { CORRECTION_DEFAULTS, toleranceFractions } from './correctionDefaults.js
 import { judgeTarget, lineTanBounds, resolveTarget, TARGET_SLACK } from './correctionTarget.js';
 import { addCorrectionEquipment, type EquipmentGroup } from './equipment.js';
 import { scaleBoardLoads } from './scaleBoardLoads.js';
-import type { CorrectionVerification, CorrectionWarning, LightLoadCheck, MeteringReadings, VoltageRise } from './correctionResult.js';
+import type { BranchSizing, CorrectionVerification, CorrectionWarning, LightLoadCheck, MeteringReadings, ResonanceCapacitance, VoltageRise } from './correctionResult.js';
 import { meteringPlace, solveMeter } from './meteringPoint.js';
 import { warningText } from './correctionWording.js';
 import { labellerOf } from '../board/conventions/phaseNames.js';
@@ -63,6 +63,22 @@ function shortCircuitVA(board: Board): number | null {
   // On a sub-board, through every feeder above it back to the source.
   const z = abs(supplyPathImpedance(board));
   return z === 0 ? null : (board.phases.length * board.nominalLineToNeutralV ** 2) / z;
+}
+
+/**
+ * The shunt capacitance the supply's inductance resonates with: the capacitors added, and every
+ * board load that draws leading vars (a fixed bank written as a load, a capacitive filter), taken as
+ * capacitance at its solved output, as the added capacitors are. Added reactors are kept apart:
+ * in parallel with the supply inductance they raise the order, h = √((S_sc + Q_L)/Q_C) (the
+ * single-node estimate, common practice, no source; reactive loads other than capacitive ones are
+ * left out, as the usual √(S_sc/Q_C) leaves them).
+ */
+function resonanceCapacitance(branches: readonly BranchSizing[], after: BoardResult): ResonanceCapacitance {
+  const addedKvar = branches.reduce((s, b) => s + (b.element === 'capacitor' ? b.kvarAtAppliedV : 0), 0);
+  const reactorKvar = branches.reduce((s, b) => s + (b.element === 'reactor' ? -b.kvarAtAppliedV : 0), 0);
+  const leading = after.loads.filter((l) => l.origin === 'board' && l.kvar < 0);
+  const onBoardKvar = leading.reduce((s, l) => s - l.kvar, 0);
+  return { addedKvar, onBoardKvar, loadsOnBoard: leading.map((l) => l.name), reactorKvar, totalKvar: addedKvar + onBoardKvar };
 }
 
 function voltageRise(board: Board, capacitorKvar: number, before: BoardResult, after: BoardResult, limitPercent: number): VoltageRise {
@@ -173,8 +189,9 @@ export function verifyCorrection(board: Board, options: VerifyCorrectionOptions)
   const rise = voltageRise(board, capacitorKvar, before, after, riseLimit);
   if (rise.flagged) warn('voltage-rise', warningText.voltageRise('the bank at the design load', Math.max(rise.estimatePercent ?? -Infinity, rise.solvedPercent), riseLimit), rise.solvedPercent, riseLimit);
   const ssc = shortCircuitVA(board);
-  const resonanceOrder = ssc !== null && capacitorKvar > 0 ? Math.sqrt(ssc / (capacitorKvar * 1000)) : null;
-  if (resonanceOrder !== null && WATCHED_ORDERS.some((h) => Math.abs(resonanceOrder - h) <= 0.1 * h)) warn('resonance', warningText.lowResonance(resonanceOrder), resonanceOrder, null);
+  const resonance = resonanceCapacitance(branches, after);
+  const resonanceOrder = ssc !== null && resonance.totalKvar > 0 ? Math.sqrt((ssc + resonance.reactorKvar * 1000) / (resonance.totalKvar * 1000)) : null;
+  if (resonanceOrder !== null && WATCHED_ORDERS.some((h) => Math.abs(resonanceOrder - h) <= 0.1 * h)) warn('resonance', warningText.lowResonance(resonanceOrder, resonance.onBoardKvar > 0 ? (resonance.addedKvar > 0 ? 'both' : 'board') : 'bank'), resonanceOrder, null);
   if (ssc === null && capacitorKvar > 0) warn('ideal-source', warningText.idealSource);
   const overloads = overloadsCaused(before, after);
   for (const o of overloads) warn('overload-caused', warningText.overloadCaused(o.message), o.value, o.threshold);
@@ -273,6 +290,7 @@ export function verifyCorrection(board: Board, options: VerifyCorrectionOptions)
     tolerance: { low: { capacitanceFactor: 1 - minus, check: low }, high: { capacitanceFactor: 1 + plus, check: high } },
     voltageRise: rise,
     resonanceOrder,
+    resonanceCapacitance: resonance,
     lightLoad,
     overloadsCaused: overloads.map((o) => ({ code: o.code, message: o.message })),
     warnings,

@@ -116,12 +116,37 @@ export function addHandCapacitors(board: Board, figures: unknown): Board {
 /** A reading that leads by more than the printed PF shows (a lead at 1.000 is round-off, as every table reads it). */
 const leadsVisibly = (r: Pick<PowerReading, 'pf' | 'sense'>): boolean => r.sense === 'leading' && r.pf !== null && r.pf.toFixed(3) !== '1.000';
 
-/** The lines, and the board, your capacitors leave leading: over-correction the figures alone would not say. */
-function leadingWarnings(solved: BoardResult, board: PowerReading, capacitorKvar: number, loadKvar: number, label: PhaseLabeller): BoardWarning[] {
-  const lines = solved.phases
-    .filter((p) => leadsVisibly(p))
-    .map((p): BoardWarning => ({ code: 'hand-line-leading', message: handCheckWarningWords.leadingLine(label(p.phase), p.pf!), value: p.pf!, threshold: 1 }));
-  const whole: BoardWarning[] = leadsVisibly(board) ? [{ code: 'hand-board-leading', message: handCheckWarningWords.leadingBoard(board.pf!, capacitorKvar, loadKvar), value: board.pf!, threshold: 1 }] : [];
+/** True when `after` leads more than `before` did, as printed (PF to 3 decimals): both leading. */
+const leadsMore = (after: number, before: number): boolean => +after.toFixed(3) < +before.toFixed(3);
+
+/**
+ * The lines, and the board, your capacitors leave leading: over-correction the figures alone would not
+ * say. A reading that already led without the capacitors (a line a line-to-line load makes lead) is
+ * worded against that state, as the correction study words it: the capacitors did not cause it.
+ */
+function leadingWarnings(
+  solved: BoardResult,
+  board: PowerReading,
+  before: { readonly lines: readonly PowerReading[]; readonly board: PowerReading },
+  capacitorKvar: number,
+  loadKvar: number,
+  label: PhaseLabeller,
+  acrossLines: (phase: PhaseId) => boolean,
+): BoardWarning[] {
+  const lines = solved.phases.flatMap((p, k): BoardWarning[] => {
+    if (!leadsVisibly(p)) return [];
+    const b = before.lines[k]!;
+    const message = !leadsVisibly(b)
+      ? handCheckWarningWords.leadingLine(label(p.phase), p.pf!)
+      : leadsMore(p.pf!, b.pf!)
+        ? handCheckWarningWords.leadingLineMore(label(p.phase), p.pf!, b.pf!)
+        : handCheckWarningWords.leadingLineBefore(label(p.phase), p.pf!, b.pf!, acrossLines(p.phase));
+    return [{ code: 'hand-line-leading', message, value: p.pf!, threshold: 1 }];
+  });
+  const ledBefore = leadsVisibly(before.board) && !leadsMore(board.pf!, before.board.pf!);
+  const whole: BoardWarning[] = leadsVisibly(board)
+    ? [{ code: 'hand-board-leading', message: ledBefore ? handCheckWarningWords.leadingBoardBefore(board.pf!, before.board.pf!) : handCheckWarningWords.leadingBoard(board.pf!, capacitorKvar, loadKvar), value: board.pf!, threshold: 1 }]
+    : [];
   return [...lines, ...whole];
 }
 
@@ -157,6 +182,8 @@ export function checkHandFigures(board: Board, figures: unknown): HandCheckResul
   const results = [ideal, withDrop, withNeutral, withCapLaw, actual].map(solve);
   const rNeutral = results[2]!;
   const rActual = results[4]!;
+  // The board as it is, without the capacitors: a line that led already is not their doing.
+  const rBefore = solve(board);
 
   const textbookFigures: Figures = {
     currentA: new Map(hand.phases.map((p) => [p.phase, p.currentAfterA])),
@@ -192,7 +219,7 @@ export function checkHandFigures(board: Board, figures: unknown): HandCheckResul
   const effects: EffectContribution[] = [
     contribution('line-pair-split', effectExplanation.lineSplit(pairLoads.reduce((s, b) => s + b.sNominal.re, 0) / 1000, pairLoads.reduce((s, b) => s + b.sNominal.im, 0) / 1000, pairCapKvar, board.system === 'split-phase', labelsOf(board)), f[0], f[1]!, board),
     contribution('board-voltage', hasDrop ? effectExplanation.boardVoltage(Math.min(...volts), Math.max(...volts), unbalancedSource) : effectExplanation.noDrop, f[1]!, f[2]!, board),
-    contribution('neutral-return', board.hasNeutral && !board.neutralOpen ? effectExplanation.neutralReturn(rNeutral.neutral?.current.magnitude ?? 0, neutralBar, regionWords(conventionsOf(board).region, board.system).sourceNeutralPoint, board.system === 'split-phase') : effectExplanation.noNeutral, f[2]!, f[3]!, board),
+    contribution('neutral-return', board.hasNeutral && !board.neutralOpen ? effectExplanation.neutralReturn(rActual.neutral?.current.magnitude ?? 0, rNeutral.neutral?.current.magnitude ?? 0, neutralBar, regionWords(conventionsOf(board).region, board.system).sourceNeutralPoint, board.system === 'split-phase') : effectExplanation.noNeutral, f[2]!, f[3]!, board),
     contribution('capacitor-voltage', effectExplanation.capacitorVoltage(capacitors.reduce((s, c) => s + c.kvarAtAppliedV, 0), plans.reduce((s, p) => s + p.handKvar, 0), ratedNotes), f[3]!, f[4]!, board),
     contribution('voltage-dependent-loads', allConstantPower ? effectExplanation.allConstantPower : effectExplanation.voltageDependentLoads(solvedKW, solvedKvar, rated.re / 1000, rated.im / 1000), f[4]!, f[5]!, board),
   ];
@@ -215,7 +242,7 @@ export function checkHandFigures(board: Board, figures: unknown): HandCheckResul
     solved: powerReading({ re: rActual.phases.reduce((s, p) => s + p.kW, 0) * 1000, im: rActual.phases.reduce((s, p) => s + p.kvar, 0) * 1000 }),
   };
   const warnings = [
-    ...leadingWarnings(rActual, boardPower.solved, capacitors.reduce((s, c) => s + c.kvarAtAppliedV, 0), solvedKvar, labelsOf(board)),
+    ...leadingWarnings(rActual, boardPower.solved, { lines: rBefore.phases, board: powerReading({ re: rBefore.phases.reduce((s, p) => s + p.kW, 0) * 1000, im: rBefore.phases.reduce((s, p) => s + p.kvar, 0) * 1000 }) }, capacitors.reduce((s, c) => s + c.kvarAtAppliedV, 0), solvedKvar, labelsOf(board), (phase) => pairLoads.some((b) => b.from === phase || b.to === phase)),
     ...rActual.warnings,
   ];
   const cautions = correctionCautions(regionWords(conventionsOf(board).region, board.system).groundWord);

@@ -28,8 +28,12 @@ export const effectExplanation = {
     'the same power at a lower voltage takes more current, and every phase angle moves with the drop.',
   noDrop: 'The source is ideal and the feeder has no impedance: the board sits at nominal voltage, as the hand method assumes.',
   /** @param sourcePoint where the neutral returns, in the board's region words (the source star point, the transformer center tap) */
-  neutralReturn: (neutralA: number, shiftV: number, sourcePoint: string, splitPhase: boolean): string =>
-    `The neutral carries ${f(neutralA, 1)} A back to the source and its drop lifts the neutral bar ${f(shiftV, 2)} V off ${sourcePoint}, so the ${splitPhase ? 'line-to-neutral' : 'phase'} voltages become unequal.`,
+  /**
+   * @param neutralA the neutral current as solved (the figure the comparison table shows)
+   * @param stepNeutralA the neutral current at this step (loads at rated power, capacitors at their hand kvar), quoted beside it where it differs as printed
+   */
+  neutralReturn: (neutralA: number, stepNeutralA: number, shiftV: number, sourcePoint: string, splitPhase: boolean): string =>
+    `The neutral carries ${f(neutralA, 1)} A back to the source as solved${f(stepNeutralA, 1) === f(neutralA, 1) ? '' : ` (${f(stepNeutralA, 1)} A at this step, with the loads still at their rated power and the capacitors at their hand kvar)`} and its drop lifts the neutral bar ${f(shiftV, 2)} V off ${sourcePoint}, so the ${splitPhase ? 'line-to-neutral' : 'phase'} voltages become unequal.`,
   noNeutral: 'This board has no neutral conductor, so there is no neutral return to account for.',
   capacitorVoltage: (appliedKvar: number, handKvar: number, ratedNote: string): string =>
     `A capacitor's output goes with the square of its voltage (Q = ωCV²): at the solved voltages your capacitors give ${f(appliedKvar, 2)} kvar, not the ${f(handKvar, 2)} kvar counted by hand (${f((100 * (appliedKvar - handKvar)) / handKvar, 1)} %).${ratedNote}`,
@@ -47,6 +51,14 @@ export const HAND_CHECK_METHOD =
 export const handCheckWarningWords = {
   leadingLine: (line: PhaseLabel, pf: number): string =>
     `line ${line} leads at PF ${f(pf, 3)} with your capacitors in: they supply more reactive power than the loads on it draw (over-correction)`,
+  /** A line that led as much or more without the capacitors: its loads make it lead, not the capacitors. */
+  leadingLineBefore: (line: PhaseLabel, pf: number, pfBefore: number, acrossLines: boolean): string =>
+    `line ${line} leads at PF ${f(pf, 3)} with your capacitors in, as it did without them (PF ${f(pfBefore, 3)} leading): the loads on it make it lead${acrossLines ? ' (a load across two lines draws its current 30° off either phase voltage)' : ''}, so this is not over-correction, and capacitors cannot bring it back to lagging`,
+  /** A line that led without the capacitors and leads more with them. */
+  leadingLineMore: (line: PhaseLabel, pf: number, pfBefore: number): string =>
+    `line ${line} already led without your capacitors (PF ${f(pfBefore, 3)} leading) and leads more with them in (PF ${f(pf, 3)}): capacitors on it add to the lead; leave them off this line`,
+  leadingBoardBefore: (pf: number, pfBefore: number): string =>
+    `the board leads at PF ${f(pf, 3)} with your capacitors in, as it did without them (PF ${f(pfBefore, 3)} leading): its own loads draw leading vars, so this is not over-correction`,
   leadingBoard: (pf: number, capacitorKvar: number, loadKvar: number): string =>
     `the board leads at PF ${f(pf, 3)} with your capacitors in: they give ${f(capacitorKvar, 2)} kvar at the solved voltages, ${loadKvar > 0 ? `against ${f(loadKvar, 2)} kvar drawn by its loads` : 'and its loads draw no lagging reactive power'}`,
 };

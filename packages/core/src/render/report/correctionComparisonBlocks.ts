@@ -26,6 +26,12 @@ const capitalised = (text: string) => text.charAt(0).toUpperCase() + text.slice(
 /** A reason may end its own sentence (the harmonic check's does); the paragraph adds the stop. */
 const withoutStop = (text: string) => text.replace(/\.$/, '');
 
+/** Where the compared losses are: a sub-board's own feeder, or the source and feeder of a main board. */
+function lossesNote(c: CorrectionComparison | HarmonicComparison): string {
+  const incomer = c.outcomes.find((o) => o.report)?.report?.verification.before.incomer ?? null;
+  return incomer ? `losses in the board's feeder from ${incomer.fedFrom}` : 'losses in the source and feeders';
+}
+
 /**
  * @param system the board's system: star and delta name nothing on a split-phase or single-phase board
  * @param region the board's region: its word for star (wye in North America)
@@ -77,7 +83,7 @@ export function correctionComparisonBlocks(c: CorrectionComparison | HarmonicCom
         ], o);
       }),
       note: [
-        'kvar delivered at the solved voltage; target PF after: the power factor the target is defined on (per line: the lowest line); losses in the source and feeders.',
+        `kvar delivered at the solved voltage; target PF after: the power factor the target is defined on (per line: the lowest line); ${lossesNote(c)}.`,
         ...c.outcomes.filter((o) => o.notApplicable).map((o) => `${names[o.arrangement]}: ${o.notApplicable}.`),
         ...(checked ? [`Bank: ${checked.rule}.`] : []),
         `Rule: ${c.rule}.`,

@@ -169,7 +169,7 @@ export function correctionSection(report: CorrectionReport, comparison: Correcti
         ...(v.powerFactor.effective ? ([['Power factor, effective (IEEE 1459)', `${fixed(v.powerFactor.effective.before, 3)} → ${fixed(v.powerFactor.effective.after, 3)}`]] as [string, string][]) : []),
         ...(v.neutralCurrentA ? ([['Neutral current', `${fixed(v.neutralCurrentA.before, 1)} → ${fixed(v.neutralCurrentA.after, 1)} A`]] as [string, string][]) : []),
         ['Apparent power released at the source', `${fixed(v.releasedKVA.source, 2)} kVA`],
-        ['Losses in source and feeder', lossChangeWords(v.before.losses.totalKW, v.after.losses.totalKW, v.lossReductionKW)],
+        [v.before.incomer ? `Losses in the feeder from ${v.before.incomer.fedFrom}` : 'Losses in source and feeder', lossChangeWords(v.before.losses.totalKW, v.after.losses.totalKW, v.lossReductionKW)],
         ['Voltage rise from the capacitors', `${fixed(v.voltageRise.solvedPercent, 2)} % (limit ${fixed(v.voltageRise.limitPercent, 1)} %)`],
       ],
     },
@@ -214,6 +214,15 @@ export function correctionSection(report: CorrectionReport, comparison: Correcti
   return { id: 'correction', title: 'Correction recommendation', blocks };
 }
 
+/** Qc as worked: the capacitors added and the leading loads already on the board; QL the reactors added. */
+function capacitanceWords(c: CorrectionReport['verification']['resonanceCapacitance']): string {
+  const parts = [
+    ...(c.addedKvar > 0 ? [`${fixed(c.addedKvar, 1)} kvar added`] : []),
+    ...(c.onBoardKvar > 0 ? [`${fixed(c.onBoardKvar, 1)} kvar of leading loads already on the board (${c.loadsOnBoard.join(', ')})`] : []),
+  ];
+  return `${parts.join(' + ')}${c.reactorKvar > 0 ? `; reactors added ${fixed(c.reactorKvar, 1)} kvar` : ''}`;
+}
+
 /** The resonance of the recommended capacitors with the supply, when the study could estimate it. */
 export function resonanceSection(report: CorrectionReport): ReportSection | null {
   const h = report.verification.resonanceOrder;
@@ -229,8 +238,8 @@ export function resonanceSection(report: CorrectionReport): ReportSection | null
         kind: 'facts',
         items: [
           ['Short-circuit power at the board', sc === null ? '—' : `${fixed(sc, 0)} kVA`],
-          ['Capacitive output considered', `${fixed(report.verification.voltageRise.capacitorKvar, 1)} kvar`],
-          ['Parallel resonance with the supply, h = √(Ssc/Qc)', `order ${fixed(h, 2)} (${fixed(f, 0)} Hz)`],
+          ['Capacitive output considered', capacitanceWords(report.verification.resonanceCapacitance)],
+          [`Parallel resonance with the supply, h = ${report.verification.resonanceCapacitance.reactorKvar > 0 ? '√((Ssc + QL)/Qc)' : '√(Ssc/Qc)'}`, `order ${fixed(h, 2)} (${fixed(f, 0)} Hz)`],
         ],
       },
       near.length
