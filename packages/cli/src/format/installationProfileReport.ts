@@ -14,7 +14,7 @@ import {
   voltageTable,
   worstTable,
 } from './profileReport.js';
-import { fixed, renderTableWithin, section } from './textTable.js';
+import { fixed, renderTableWithin, section, thousands } from './textTable.js';
 import { wrapText } from './wrapText.js';
 
 const hours = (h: number) => (h === 0 ? '0' : h < 10 ? fixed(h, 2) : fixed(h, 1));
@@ -67,7 +67,7 @@ function boardSection(b: InstallationProfileBoard, label: PhaseLabeller): string
     section(`${b.board} — voltages at the board (% of nominal)`),
     voltageTable(b.before, label),
     ...thresholdLines(b.before, b),
-    `  energy through the board: ${Math.round(b.before.energy.kWhImport).toLocaleString('en-US')} kWh imported, billing power factor ${billingPowerFactorText(b.before.energy.billingPf)}`,
+    `  energy through the board: ${thousands(b.before.energy.kWhImport)} kWh imported, billing power factor ${billingPowerFactorText(b.before.energy.billingPf)}`,
   ];
 }
 
@@ -100,7 +100,7 @@ export function renderInstallationProfileReport(r: InstallationProfileResult, cu
     const meter = r.bank.meter;
     if (meter)
       parts.push(
-        `  the controller measures ${meter.point === 'origin' ? "at the origin (the supply's terminals, before the service cable)" : `at the incomer of ${meter.point}`}, not at ${r.bank.board}: billing power factor there ${billingPowerFactorText(meter.before.energy.billingPf)} → ${billingPowerFactorText(meter.after.energy.billingPf)}, lagging kvarh ${Math.round(meter.before.energy.kvarhLagging).toLocaleString('en-US')} → ${Math.round(meter.after.energy.kvarhLagging).toLocaleString('en-US')}`,
+        `  the controller measures ${meter.point === 'origin' ? "at the origin (the supply's terminals, before the service cable)" : `at the incomer of ${meter.point}`}, not at ${r.bank.board}: billing power factor there ${billingPowerFactorText(meter.before.energy.billingPf)} → ${billingPowerFactorText(meter.after.energy.billingPf)}, lagging kvarh ${thousands(meter.before.energy.kvarhLagging)} → ${thousands(meter.after.energy.kvarhLagging)}`,
       );
     if (bankBoard !== main)
       parts.push(

@@ -1,10 +1,9 @@
 /** ProfileResult → the text report of `trivar profile`. */
 import { billingPowerFactorText, contactorLifeWords, labellerOf, type PhaseLabeller, type ProfileBankResult, type ProfileResult, type ProfileSummary, type ScenarioResult, type BoardScenarios, type VoltageUnbalanceLimit } from '@trivar/core';
-import { fixed, renderTable, section } from './textTable.js';
+import { fixed, renderTable, section, thousands } from './textTable.js';
 import { wrapText } from './wrapText.js';
 
 const hours = (h: number) => (h === 0 ? '0' : h < 10 ? fixed(h, 2) : fixed(h, 1));
-const thousands = (x: number) => Math.round(x).toLocaleString('en-US');
 const money = (x: number | null) => (x === null ? '-' : fixed(x, 2));
 /** Labels of a board file named A/B/C: what a caller without the board's naming gets. */
 const LETTERED = labellerOf('A/B/C');
