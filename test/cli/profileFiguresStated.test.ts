@@ -18,4 +18,55 @@ describe('trivar profile figures', () => {
     const json = JSON.parse(runTrivar(['profile', SHED, '--data', SHED_DATA, '--json']).stdout);
     expect(json.before.energy.phases[0].kvarh).toBeCloseTo(-0.2, 6);
   });
+
+  describe('--bank: a bank sized from the profile reaches the target, and where a bank misses it the hours say why', () => {
+    const SHOP = 'test/fixtures/profile/print-shop.yaml';
+    const BUSY = 'test/fixtures/profile/print-shop-busy.csv';
+    it('a 2.77 kvar need: one 3 kvar step that closes, not two 2.5 kvar steps of which the second never does', () => {
+      // 20 kW at 9.34 kvar (PF 0.906): 9.34 − 20·tan(acos 0.95) = 2.77 kvar. Two 2.5 kvar steps would leave
+      // 0.27 kvar after the first, under the 0.67 × 2.5 = 1.68 kvar threshold: PF 0.946, below the target.
+      const json = JSON.parse(runTrivar(['profile', SHOP, '--data', BUSY, '--bank', '--json']).stdout);
+      expect(json.bank.needKvar.ABC).toBeCloseTo(2.77, 2);
+      expect(json.bank.steps.map((s: { kvar: number; closings: number }) => [s.kvar, s.closings])).toEqual([[3, 1]]);
+      // 9.34 − 3.02 (3 kvar at 100.4 % voltage) = 6.32 kvar → 20/√(20² + 6.32²) = 0.9535.
+      expect(json.bank.after.energy.billingPf).toBeCloseTo(0.9535, 3);
+      expect(json.bank.belowTarget).toEqual({ hours: 0, allStepsInHours: 0, underResponseHours: 0, stepTooCoarseHours: 0 });
+      expect(json.bank.targetOutOfReach).toBeNull();
+    });
+
+    it('steps as built that leave the target missed: the hours below it and the reason, in text and JSON', () => {
+      const args = ['profile', 'test/fixtures/profile/print-shop-coarse-steps.yaml', '--data', BUSY, '--bank'];
+      const text = runTrivar(args).stdout.replace(/\s+/g, ' ');
+      expect(text).toContain('billing power factor 0.906 → 0.946');
+      expect(text).toContain('board PF below 0.95 with the bank: 4.00 h of import — 4.00 h with the shortfall under the switching threshold (0.67 × 2.5 kvar = 1.68 kvar: no step closes for it)');
+      const json = JSON.parse(runTrivar([...args, '--json']).stdout);
+      expect(json.bank.steps.map((s: { closings: number }) => s.closings)).toEqual([1, 0]);
+      expect(json.bank.belowTarget).toEqual({ hours: 4, allStepsInHours: 0, underResponseHours: 4, stepTooCoarseHours: 0 });
+    });
+
+    it('a need under every step size\'s threshold is warned, not passed silently', () => {
+      // 20 kW at PF 0.945: 20·(0.34611 − 0.32868) = 0.348 kvar, under 0.67 × the smallest 1 kvar step (and 1 − 0.67 of it).
+      const r = runTrivar(['profile', 'test/fixtures/profile/laundry-near-target.yaml', '--data', 'test/fixtures/profile/laundry-near-target.csv', '--bank', '--json']);
+      const bank = JSON.parse(r.stdout).bank;
+      expect(bank.targetOutOfReach).toMatchObject({ channel: 'ABC', needKvar: expect.closeTo(0.348, 3) });
+      expect(bank.targetOutOfReach.words).toContain('cannot hold PF 0.95 at the 0.3 kvar need');
+      expect(bank.belowTarget.hours).toBe(2);
+    });
+
+    it('no bank sized: the reason, in text and JSON, exit 0', () => {
+      const cases = [
+        ['print-shop-closed.csv', 'no-current', 'no current flows in any interval of the data'],
+        ['print-shop-kettles.csv', 'no-lagging-reactive-power', 'the loads draw no lagging reactive power in any interval'],
+      ] as const;
+      for (const [data, reason, words] of cases) {
+        const args = ['profile', SHOP, '--data', `test/fixtures/profile/${data}`, '--bank'];
+        const text = runTrivar(args);
+        expect(text.code).toBe(0);
+        expect(text.stdout.replace(/\s+/g, ' ')).toContain(`Automatic bank over the profile no bank sized or simulated: ${words}`);
+        const json = JSON.parse(runTrivar([...args, '--json']).stdout);
+        expect(json.bank).toBeNull();
+        expect(json.bankNotSized.reason).toBe(reason);
+      }
+    });
+  });
 });

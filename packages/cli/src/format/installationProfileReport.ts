@@ -2,6 +2,7 @@
 import { BANKS_IN_SERVICE_BASIS, bankInServiceWords, billingPowerFactorText, labellerOf, type ListedBankInService, type InstallationProfileBoard, type InstallationProfileResult, type InstallationScenarioResult, type PhaseLabeller } from '@trivar/core';
 import {
   bankLines,
+  noBankLines,
   currentTable,
   dataLines,
   energyTable,
@@ -95,6 +96,7 @@ export function renderInstallationProfileReport(r: InstallationProfileResult, cu
     section(main.before.worstByNeutral.length ? `Intervals with the highest neutral current at ${main.board}` : `Intervals with the highest line current at ${main.board}`),
     worstTable(main.before, main.limits.unbalance),
   ];
+  if (r.bankNotSized) parts.push(section(`Automatic bank on ${r.bankNotSized.board} over the profile`), noBankLines(r.bankNotSized.words));
   if (r.bank && bankBoard) {
     parts.push(section(`Automatic bank on ${r.bank.board} over the profile`), bankLines({ bank: r.bank, before: bankBoard.before }));
     const meter = r.bank.meter;

@@ -144,6 +144,7 @@ export function bankLines(r: { readonly bank: ProfileResult['bank']; readonly be
     wrapText(`controller: ${band}, switching threshold ${fixed(set.responseShare, 2)} × smallest step, delay ${set.delaySeconds} s, reconnect after ${set.reconnectSeconds} s${reconnectBasis(set)}`, '  ', '    '),
     wrapText(b.withinInterval.words, '  ', '    '),
     ...b.warnings.map((w) => wrapText(`warning: ${w}`, '  ', '    ')),
+    ...(b.targetOutOfReach ? [wrapText(`warning: ${b.targetOutOfReach.words}`, '  ', '    ')] : []),
     '',
     renderTable(
       [{ header: 'step' }, { header: 'where', align: 'left' }, { header: 'kvar' }, { header: 'closings' }, { header: 'per year' }],
@@ -153,14 +154,33 @@ export function bankLines(r: { readonly bank: ProfileResult['bank']; readonly be
       b.yearsToContactorLife === null ? '' : ` — the busiest step ${contactorLifeWords(b.yearsToContactorLife)}`
     }`,
     `  billing power factor ${billingPowerFactorText(r.before.energy.billingPf)} → ${billingPowerFactorText(b.after.energy.billingPf)}; leading import ${hours(r.before.leadingHours)} h → ${hours(b.after.leadingHours)} h`,
-    ...(b.belowTarget && b.belowTarget.hours > 0
-      ? [
-          `  board PF below ${pf(set.targetPf)} with the bank: ${hours(b.belowTarget.hours)} h of import, ${hours(b.belowTarget.stepTooCoarseHours)} h of them with no step small enough to stay under ${pf(set.upperPf!)} (steps coarse for this band at that load)`,
-        ]
-      : []),
+    ...belowTargetLines(b, pf),
     `  largest voltage rise from the bank ${fixed(b.voltageRisePercent, 2)} % of nominal (${b.voltageRiseAt}); highest voltage with it ${fixed(Math.max(...b.after.voltages.map((v) => v.maxPercent)), 1)} %`,
   ];
   return lines.join('\n');
+}
+
+/** The hours the board stays below the target with the bank, and why, where there are any. */
+function belowTargetLines(b: ProfileBankResult, pf: (x: number) => string): string[] {
+  const t = b.belowTarget;
+  if (t.hours <= 0) return [];
+  const set = b.settings;
+  const smallest = Math.min(...b.steps.map((s) => s.kvar));
+  const other = t.hours - t.allStepsInHours - t.underResponseHours - t.stepTooCoarseHours;
+  const why = [
+    ...(t.allStepsInHours > 0 ? [`${hours(t.allStepsInHours)} h with every step in (the bank too small for that load)`] : []),
+    ...(t.underResponseHours > 0
+      ? [`${hours(t.underResponseHours)} h with the shortfall under the switching threshold (${fixed(set.responseShare, 2)} × ${fixed(smallest, 1)} kvar = ${fixed(set.responseShare * smallest, 2)} kvar: no step closes for it)`]
+      : []),
+    ...(t.stepTooCoarseHours > 0 ? [`${hours(t.stepTooCoarseHours)} h with no step small enough to stay under ${pf(set.upperPf!)} (steps coarse for this band at that load)`] : []),
+    ...(other > 1e-9 ? [`${hours(other)} h with the controller on its way (switching delay, a step waiting out its discharge${b.steps.some((s) => s.channel !== 'ABC') ? ', or a phase corrected on its own' : ''})`] : []),
+  ];
+  return [wrapText(`board PF below ${pf(set.targetPf)} with the bank: ${hours(t.hours)} h of import — ${why.join('; ')}`, '  ', '    ')];
+}
+
+/** Why `--bank` gave no bank, under the heading the bank would have had. */
+export function noBankLines(words: string): string {
+  return wrapText(words, '  ', '    ');
 }
 
 /** Why the step waits that long: the practice's discharge time, or the file's setting beside it. */
@@ -201,6 +221,7 @@ export function renderProfileReport(r: ProfileResult, currency: string, label: P
     worstTable(s, r.limits.unbalance),
   ];
   if (r.bank) parts.push(section('Automatic bank over the profile'), bankLines(r));
+  else if (r.bankNotSized) parts.push(section('Automatic bank over the profile'), noBankLines(r.bankNotSized.words));
   parts.push(section('Cautions'), ...r.cautions.map((c) => `  - ${c}`));
   return `${parts.join('\n')}\n`;
 }

@@ -58,3 +58,31 @@ export function stepPlaceWords(board: Board, channel: StepChannel): string {
   }
   return threePhase ? `on phase ${label(channel)}` : `line-to-neutral on ${label(channel)}`;
 }
+
+/** Why `profile --bank` sized and simulated no bank: the reason a caller can test, and the words it prints. */
+export interface NoBankSized {
+  readonly reason: 'no-current' | 'no-lagging-reactive-power' | 'target-held';
+  readonly words: string;
+}
+
+/**
+ * The words for a bank sized from the profile that came to no steps. `belowShare` is the share of importing
+ * intervals below the target (0–1); `coverShare` the share the sizing holds at the target.
+ */
+export function noBankWords(reason: NoBankSized['reason'], targetPf: number, belowShare: number, coverShare: number): string {
+  if (reason === 'no-current') return 'no bank sized or simulated: no current flows in any interval of the data (every load off), so there is nothing for a bank to correct';
+  if (reason === 'no-lagging-reactive-power')
+    return 'no bank sized or simulated: the loads draw no lagging reactive power in any interval (resistive, or leading), so capacitors would only carry the power factor towards leading';
+  const pct = (x: number) => `${Math.round(x * 1000) / 10} %`;
+  return `no bank sized or simulated: the power factor is below the target ${targetPf} in ${pct(belowShare)} of the importing intervals, within the ${pct(1 - coverShare)} the sizing leaves uncovered (profile.bank.coverShare ${coverShare})`;
+}
+
+/**
+ * The sized steps cannot reach the target at the need: the last step's share of it is under the response
+ * threshold. A lower threshold does not help, since the step that then closes over-corrects by more than the
+ * threshold and switches straight back out (hunting).
+ */
+export function targetOutOfReachWords(place: string, needKvar: number, stepKvar: number, responseShare: number, targetPf: number): string {
+  const k = (x: number, places: number) => `${x.toFixed(places)} kvar`;
+  return `the ${place} steps of ${k(stepKvar, 1)} cannot hold PF ${targetPf} at the ${k(needKvar, 1)} need they were sized for: the controller closes a step only while the need left exceeds ${responseShare} × ${k(stepKvar, 1)} = ${k(responseShare * stepKvar, 2)}, and at no step size tried does the last step's share of the need pass that (a lower threshold would close it only to switch it straight back out); expect the power factor below the target at that load — a need this small is usually met by a fixed capacitor, or left (common practice, no source)`;
+}

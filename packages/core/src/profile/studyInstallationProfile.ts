@@ -28,7 +28,7 @@ import { switchBank } from './simulateBank.js';
 import { recordInterval, type IntervalFigures } from './solveBatch.js';
 import { profileClock, resolveLimits, type ProfileBankResult, type ProfileStudyOptions } from './studyProfile.js';
 import { summariseFigures, type ProfileSummary, type ResolvedLimits, type SummaryContext } from './summariseFigures.js';
-import { PROFILE_CAUTIONS } from './profileWording.js';
+import { PROFILE_CAUTIONS, type NoBankSized } from './profileWording.js';
 import { clearRoundOff, conductorFloorA } from './intervalRoundOff.js';
 import { listedBanksInService, type ListedBankInService } from '../analysis/banksInServiceWords.js';
 
@@ -99,6 +99,8 @@ export interface InstallationProfileResult {
    * where the controller measured when that is not the bank's board (its sizing and `belowTarget` are read there).
    */
   readonly bank: (ProfileBankResult & { readonly board: string; readonly meter: BankMeter | null }) | null;
+  /** Why --bank sized and simulated no bank on the board named (the need at the cover percentile is 0); null otherwise. */
+  readonly bankNotSized: (NoBankSized & { readonly board: string }) | null;
   readonly cautions: readonly string[];
 }
 
@@ -177,7 +179,7 @@ export function studyInstallationProfile(input: InstallationProfileInput, option
   let meterAfter: IntervalFigures | null = null;
 
   let after: IntervalFigures[] | null = null;
-  const withBank = bankOverProfile(
+  const outcome = bankOverProfile(
     {
       board: boards[bankAt]!,
       before: before[bankAt]!,
@@ -213,6 +215,7 @@ export function studyInstallationProfile(input: InstallationProfileInput, option
     },
     options,
   );
+  const withBank = outcome && 'bank' in outcome ? outcome : null;
   const afterFigures = withBank ? after : null;
   const result: InstallationProfileResult = {
     installation: installation.name,
@@ -238,6 +241,7 @@ export function studyInstallationProfile(input: InstallationProfileInput, option
           meter: meter && meterBefore && meterAfter && meterContext ? { point: meter.point, before: summariseFigures(meterBefore, meterContext), after: summariseFigures(meterAfter, meterContext) } : null,
         }
       : null,
+    bankNotSized: outcome && 'notSized' in outcome ? { board: names[bankAt]!, ...outcome.notSized } : null,
     cautions: PROFILE_CAUTIONS,
   };
   const meterFigures = withBank && meter && meterBefore && meterAfter ? { point: meter.point, before: meterBefore, after: meterAfter as IntervalFigures } : null;
