@@ -69,4 +69,32 @@ describe('trivar profile figures', () => {
       }
     });
   });
+
+  describe('scenario hours share out one year', () => {
+    const farm = (dairy: number, night: number) => `name: Hazel Farm dairy
+supply: { system: three-phase-4wire, voltage: { lineToLine: 400 }, frequencyHz: 50 }
+loads:
+  - { name: Milking pump, connection: ABC-delta, kW: 7.5, pf: 0.82 }
+  - { name: Water heater, connection: A-N, kW: 3, pf: 1 }
+profile:
+  scenarios:
+    - { name: milking, hours: ${dairy}, loads: { Milking pump: 1, Water heater: 1 } }
+    - { name: night, hours: ${night}, loads: { Water heater: 0.5 } }
+`;
+    it('more than 8784 h in all is refused, naming the field, the total and each scenario', () => {
+      const r = runTrivar(['profile', '-'], farm(5000, 4000));
+      expect(r.code).toBe(3);
+      expect(r.stderr).toContain('profile.scenarios: expected scenario hours that share out one year, 8784 h at most');
+      expect(r.stderr).toContain('they sum to 9000 h (milking 5000 h + night 4000 h)');
+      expect(r.stderr).not.toMatch(/\bat \S+\.js:\d+/);
+    });
+    it('a leap year in all is accepted, and its energy is the scenarios\' own', () => {
+      const r = runTrivar(['profile', '-', '--json'], farm(4784, 4000));
+      expect(r.code).toBe(0);
+      const json = JSON.parse(r.stdout);
+      expect(json.hours).toBe(8784);
+      // 4784 h × 10.5 kW + 4000 h × 1.5 kW = 56,232 kWh (losses: no source impedance).
+      expect(json.kWhImport).toBeCloseTo(56_232, 0);
+    });
+  });
 });
