@@ -2,6 +2,9 @@
  * `trivar profile` says what its figures rest on: no "-0" printed, and (further down) the cases where a
  * figure could mislead are stated in words.
  */
+import { mkdtempSync, readFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { runTrivar } from './runTrivar.js';
 
@@ -95,6 +98,29 @@ profile:
       expect(json.hours).toBe(8784);
       // 4784 h × 10.5 kW + 4000 h × 1.5 kW = 56,232 kWh (losses: no source impedance).
       expect(json.kWhImport).toBeCloseTo(56_232, 0);
+    });
+  });
+
+  describe('the report\'s load-over-time section states the data\'s gaps and repeated clock times as profile does', () => {
+    const SHOP = 'test/fixtures/profile/print-shop.yaml';
+    const cases = [
+      ['print-shop-gap.csv', [], '1 gap, 2 intervals (1.00 h) missing: left out of every figure'],
+      ['print-shop-clocks-back.csv', ['--time-zone', 'Europe/Dublin'], '4 wall-clock times fall in the repeated hour when clocks go back: placed in row order'],
+    ] as const;
+    it.each(cases)('%s', (data, zone, words) => {
+      const csv = `test/fixtures/profile/${data}`;
+      const profile = runTrivar(['profile', SHOP, '--data', csv, ...zone]);
+      expect(profile.stdout).toContain(words);
+      const dir = mkdtempSync(join(tmpdir(), 'trivar-report-data-'));
+      for (const file of ['r.md', 'r.html']) {
+        const r = runTrivar(['report', SHOP, '--profile-data', csv, ...zone, '-o', join(dir, file)]);
+        expect(r.code).toBe(0);
+        const text = readFileSync(join(dir, file), 'utf8');
+        expect(text).toContain('Interval data');
+        expect(text).toContain(words);
+        // The report has no --fill-gaps: it does not point at one.
+        expect(text).not.toContain('--fill-gaps');
+      }
     });
   });
 });

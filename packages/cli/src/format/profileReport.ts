@@ -1,5 +1,5 @@
 /** ProfileResult → the text report of `trivar profile`. */
-import { billingPowerFactorText, contactorLifeWords, labellerOf, type PhaseLabeller, type ProfileBankResult, type ProfileResult, type ProfileSummary, type ScenarioResult, type BoardScenarios, type VoltageUnbalanceLimit } from '@trivar/core';
+import { billingPowerFactorText, contactorLifeWords, intervalSequenceWords, labellerOf, type PhaseLabeller, type ProfileBankResult, type ProfileResult, type ProfileSummary, type ScenarioResult, type BoardScenarios, type VoltageUnbalanceLimit } from '@trivar/core';
 import { fixed, renderTable, section, thousands } from './textTable.js';
 import { wrapText } from './wrapText.js';
 
@@ -11,17 +11,7 @@ const LETTERED = labellerOf('A/B/C');
 export function dataLines(r: Pick<ProfileResult, 'sequence' | 'intervals' | 'timeZone' | 'undriven' | 'path'>): string[] {
   const s = r.sequence;
   const lines = [`${thousands(r.intervals.count)} intervals of ${r.intervals.intervalSeconds} s, ${r.intervals.first} to ${r.intervals.last} (${r.timeZone})`];
-  if (s) {
-    const gaps = s.gaps.count
-      ? `${s.gaps.count} gap${s.gaps.count === 1 ? '' : 's'}, ${thousands(s.gaps.missingIntervals)} intervals (${hours(s.gaps.missingHours)} h) missing: ${
-          s.fill === 'none' ? 'left out of every figure (--fill-gaps hold or linear fills them)' : `filled by ${s.fill === 'hold' ? 'holding the last reading' : 'linear interpolation'} (${thousands(s.filledIntervals)} intervals made)`
-        }`
-      : 'no gaps';
-    lines.push(gaps);
-    if (s.duplicates.count) lines.push(`${s.duplicates.count} repeated time${s.duplicates.count === 1 ? '' : 's'}: the first reading kept (row${s.duplicates.rows.length === 1 ? '' : 's'} ${s.duplicates.rows.join(', ')}${s.duplicates.count > s.duplicates.rows.length ? ', ...' : ''})`);
-    if (s.ambiguousTimes) lines.push(`${s.ambiguousTimes} wall-clock times fall in the repeated hour when clocks go back: placed in row order`);
-    if (s.irregularSteps) lines.push(s.irregularSteps === 1 ? 'one step between rows is not a whole number of intervals' : `${s.irregularSteps} steps between rows are not a whole number of intervals`);
-  }
+  if (s) lines.push(...intervalSequenceWords(s));
   if (r.undriven && r.undriven.loads.length)
     lines.push(`${r.undriven.loads.length} board load${r.undriven.loads.length === 1 ? '' : 's'} with no column (${r.undriven.loads.slice(0, 4).join(', ')}${r.undriven.loads.length > 4 ? ', ...' : ''}): ${r.undriven.atRating ? 'held at rating' : 'taken as off (--unlisted-at-rating keeps them on)'}`);
   lines.push(`solved on the ${r.path === 'closed-form' ? 'closed-form (Millman) path: phase-to-neutral loads and a neutral conductor' : 'nodal path'}`);

@@ -4,6 +4,8 @@ import { labellerOf } from '../board/conventions/phaseNames.js';
 import type { CapacitorDischarge } from '../correction/capacitorDischarge.js';
 import type { StepChannel } from './bankController.js';
 import { PROFILE_DEFAULTS } from './profileDefaults.js';
+import type { SequenceReport } from './checkIntervalSequence.js';
+import { groupDigits } from '../_internal/groupDigits.js';
 
 /** Cautions printed with every profile result. */
 export const PROFILE_CAUTIONS: readonly string[] = [
@@ -85,4 +87,27 @@ export function noBankWords(reason: NoBankSized['reason'], targetPf: number, bel
 export function targetOutOfReachWords(place: string, needKvar: number, stepKvar: number, responseShare: number, targetPf: number): string {
   const k = (x: number, places: number) => `${x.toFixed(places)} kvar`;
   return `the ${place} steps of ${k(stepKvar, 1)} cannot hold PF ${targetPf} at the ${k(needKvar, 1)} need they were sized for: the controller closes a step only while the need left exceeds ${responseShare} × ${k(stepKvar, 1)} = ${k(responseShare * stepKvar, 2)}, and at no step size tried does the last step's share of the need pass that (a lower threshold would close it only to switch it straight back out); expect the power factor below the target at that load — a need this small is usually met by a fixed capacitor, or left (common practice, no source)`;
+}
+
+/**
+ * What the interval data's sequence showed, a sentence each: gaps and what was done with them, repeated times,
+ * wall-clock times in the hour clocks go back, steps that are not whole intervals. `trivar profile` prints
+ * these and the report's load-over-time section states them, in these words.
+ * @param fillOption name the option that fills gaps (`trivar profile --fill-gaps`) where the caller has it
+ */
+export function intervalSequenceWords(s: SequenceReport, fillOption = true): string[] {
+  const count = (x: number) => groupDigits(Math.round(x) || 0);
+  const hours = (h: number) => (h === 0 ? '0' : h < 10 ? h.toFixed(2) : h.toFixed(1));
+  const words = [
+    s.gaps.count
+      ? `${s.gaps.count} gap${s.gaps.count === 1 ? '' : 's'}, ${count(s.gaps.missingIntervals)} intervals (${hours(s.gaps.missingHours)} h) missing: ${
+          s.fill === 'none' ? `left out of every figure${fillOption ? ' (--fill-gaps hold or linear fills them)' : ''}` : `filled by ${s.fill === 'hold' ? 'holding the last reading' : 'linear interpolation'} (${count(s.filledIntervals)} intervals made)`
+        }`
+      : 'no gaps',
+  ];
+  if (s.duplicates.count)
+    words.push(`${s.duplicates.count} repeated time${s.duplicates.count === 1 ? '' : 's'}: the first reading kept (row${s.duplicates.rows.length === 1 ? '' : 's'} ${s.duplicates.rows.join(', ')}${s.duplicates.count > s.duplicates.rows.length ? ', ...' : ''})`);
+  if (s.ambiguousTimes) words.push(`${s.ambiguousTimes} wall-clock times fall in the repeated hour when clocks go back: placed in row order`);
+  if (s.irregularSteps) words.push(s.irregularSteps === 1 ? 'one step between rows is not a whole number of intervals' : `${s.irregularSteps} steps between rows are not a whole number of intervals`);
+  return words;
 }

@@ -10,7 +10,7 @@ import type { InstallationProfileResult } from '../../profile/studyInstallationP
 import type { ProfileSummary, ResolvedLimits } from '../../profile/summariseFigures.js';
 import { fixed } from '../svgText.js';
 import { billingPowerFactorText } from '../../profile/billingPowerFactor.js';
-import { contactorLifeWords } from '../../profile/profileWording.js';
+import { contactorLifeWords, intervalSequenceWords } from '../../profile/profileWording.js';
 import type { ReportBlock, ReportSection } from './reportDocument.js';
 import { labellerOf, type PhaseNaming } from '../../board/conventions/phaseNames.js';
 
@@ -32,6 +32,8 @@ const intervalWords = (p: Pick<ProfileResult, 'intervals' | 'timeZone'>) =>
 interface BoardProfileView {
   readonly intervals: ProfileResult['intervals'];
   readonly timeZone: string;
+  /** What the data's sequence showed (gaps, repeated times), where this board's blocks state it; null: stated elsewhere. */
+  readonly sequence: ProfileResult['sequence'];
   readonly limits: ResolvedLimits;
   readonly before: ProfileSummary;
   /** The conductors' caption: where the currents are measured. */
@@ -42,6 +44,9 @@ interface BoardProfileView {
 /** The board region's unbalance index, capitalised, with its definition where its name does not say it. */
 const unbalanceWords = (u: VoltageUnbalanceLimit) => `${u.name[0]!.toUpperCase()}${u.name.slice(1)}${u.definition ? ` (${u.definition}; ${u.source})` : ` (${u.source})`}`;
 
+/** The data's gaps and repeated times, as `trivar profile` words them. */
+const sequenceFacts = (s: ProfileResult['sequence']): [string, string][] => (s ? [['Interval data', intervalSequenceWords(s, false).join('; ')]] : []);
+
 function boardBlocks(p: BoardProfileView, charts: readonly ProfileChart[], naming: PhaseNaming, figurePrefix: string): ReportBlock[] {
   const s = p.before;
   const label = labellerOf(naming);
@@ -50,6 +55,7 @@ function boardBlocks(p: BoardProfileView, charts: readonly ProfileChart[], namin
       kind: 'facts',
       items: [
         ['Intervals', intervalWords(p)],
+        ...sequenceFacts(p.sequence),
         ['Energy imported / exported', `${fixed(s.energy.kWhImport, 0)} kWh / ${fixed(s.energy.kWhExport, 0)} kWh`],
         ['Reactive energy lagging / leading', `${fixed(s.energy.kvarhLagging, 0)} kvarh / ${fixed(s.energy.kvarhLeading, 0)} kvarh`],
         ['Billing power factor', billingPowerFactorText(s.energy.billingPf)],
@@ -129,6 +135,7 @@ export function installationProfileSections(
       kind: 'facts',
       items: [
         ['Intervals', intervalWords(r)],
+        ...sequenceFacts(r.sequence),
         ['Boards', `${r.boards.length}, every board and feeder solved at once in each interval`],
         ...(r.banksInService.length ? [['Capacitor banks in service', `in every interval, ${BANKS_IN_SERVICE_BASIS}: ${r.banksInService.map((b) => bankInServiceWords(b)).join('; ')}`] as [string, string]] : []),
       ],
@@ -181,7 +188,7 @@ export function installationProfileSections(
   const boards = r.boards.map((b): ReportSection => {
     const id = `profile-${ids.get(b.board)!}`;
     const where = b.fedFrom === null ? 'the supply to the main board' : `the feeder from ${b.fedFrom}`;
-    const blocks = boardBlocks({ ...r, limits: b.limits, before: b.before, currentsCaption: `Currents in ${where} over the period` }, charts.boards.get(b.board) ?? [], naming, `${id}-`);
+    const blocks = boardBlocks({ ...r, sequence: null, limits: b.limits, before: b.before, currentsCaption: `Currents in ${where} over the period` }, charts.boards.get(b.board) ?? [], naming, `${id}-`);
     if (b.after && r.bank) blocks.push({ kind: 'facts', items: [[`Billing power factor with the bank on ${r.bank.board}`, billingPowerFactorText(b.after.energy.billingPf)]] });
     return { id, title: `Load over time — ${b.board}`, blocks };
   });
