@@ -123,4 +123,39 @@ profile:
       }
     });
   });
+
+  describe('a neutral above its rating is warned in words, on every board', () => {
+    it('an installation: the sub-board whose feeder neutral is overloaded, hours and peak; worst intervals for every board with a neutral', () => {
+      // Boat shed: 6 kW hull heaters on A-N alone at full output for 07:30 and 08:00 (1 h of the 2 h): 230² / 6000
+      // = 8.82 Ω at about 223 V → 25.3 A in a neutral rated 20 A.
+      const args = ['profile', 'test/fixtures/profile/marina-sheds.yaml', '--data', 'test/fixtures/profile/marina-sheds.csv'];
+      const r = runTrivar(args);
+      expect(r.code).toBe(0);
+      const text = r.stdout.replace(/\s+/g, ' ');
+      expect(text).toContain('Warnings ! Boat shed: neutral current above its 20 A rating for 1.00 h of the 2.00 h, peak 25.3 A at 2026-02-02 07:30');
+      expect(text).not.toContain('! Harbour office');
+      expect(r.stdout).toContain('Intervals with the highest neutral current at Harbour office\n');
+      expect(r.stdout).toContain('Intervals with the highest neutral current at Boat shed (its feeder from Harbour office)\n');
+      const json = JSON.parse(runTrivar([...args, '--json']).stdout);
+      expect(json.warnings).toHaveLength(1);
+      expect(json.warnings[0]).toMatch(/^Boat shed: neutral current above its 20 A rating for 1\.00 h/);
+    });
+    it('a board file: the warning names the limit the study judged against', () => {
+      const board = `name: Kiln room
+supply: { system: three-phase-4wire, voltage: { lineToLine: 400 }, frequencyHz: 50 }
+feeder:
+  line: { lengthM: 25, rOhmPerKm: 1.15, xOhmPerKm: 0.09, ratingA: 40 }
+  neutral: { lengthM: 25, rOhmPerKm: 1.15, xOhmPerKm: 0.09, ratingA: 32 }
+loads:
+  - { name: Kiln, connection: A-N, kW: 5, pf: 1, model: constant-impedance }
+profile: { limits: { neutralA: 16 } }
+`;
+      const r = runTrivar(['profile', '-', '--data', 'test/fixtures/profile/kiln-room.csv'], board);
+      expect(r.code).toBe(0);
+      // 5 kW (21.7 A at 230 V) through 25 m of 1.15 Ω/km line and neutral: 21.5 A against the study's 16 A
+      // limit, for one half-hour of two; under the neutral's 32 A rating, so no word of overheating.
+      const text = r.stdout.replace(/\s+/g, ' ');
+      expect(text).toContain("! neutral current above the study's 16 A neutral limit (profile.limits.neutralA) for 0.50 h of the 1.00 h, peak 21.5 A at 2026-03-09 18:00 Cautions");
+    });
+  });
 });

@@ -3,6 +3,7 @@ import { BANKS_IN_SERVICE_BASIS, bankInServiceWords, billingPowerFactorText, lab
 import {
   bankLines,
   noBankLines,
+  warningLines,
   currentTable,
   dataLines,
   energyTable,
@@ -78,6 +79,14 @@ function banksInServiceLines(banks: readonly ListedBankInService[], each: 'inter
   return [wrapText(`capacitor banks in service in every ${each}, ${BANKS_IN_SERVICE_BASIS}: ${banks.map((b) => bankInServiceWords(b)).join('; ')}`, '  ', '    ')];
 }
 
+/** The intervals with the highest neutral current on every board with a neutral (its incoming feeder's); the main board's highest line current where none has one. */
+function worstSections(r: InstallationProfileResult): string[] {
+  const withNeutral = r.boards.filter((b) => b.before.worstByNeutral.length);
+  const main = r.boards[0]!;
+  if (!withNeutral.length) return [section(`Intervals with the highest line current at ${main.board}`), worstTable(main.before, main.limits.unbalance)];
+  return withNeutral.flatMap((b) => [section(`Intervals with the highest neutral current at ${b.board}${b.fedFrom === null ? '' : ` (its feeder from ${b.fedFrom})`}`), worstTable(b.before, b.limits.unbalance)]);
+}
+
 export function renderInstallationProfileReport(r: InstallationProfileResult, currency: string, label: PhaseLabeller = labellerOf(r.phaseNames)): string {
   const main = r.boards[0]!;
   const bankBoard = r.bank ? r.boards.find((b) => b.board === r.bank!.board)! : null;
@@ -93,8 +102,7 @@ export function renderInstallationProfileReport(r: InstallationProfileResult, cu
     energyTable(main.before, label),
     section(`Calendar months at the supply (${main.board})`),
     monthTable(main.before, main.after, currency),
-    section(main.before.worstByNeutral.length ? `Intervals with the highest neutral current at ${main.board}` : `Intervals with the highest line current at ${main.board}`),
-    worstTable(main.before, main.limits.unbalance),
+    ...worstSections(r),
   ];
   if (r.bankNotSized) parts.push(section(`Automatic bank on ${r.bankNotSized.board} over the profile`), noBankLines(r.bankNotSized.words));
   if (r.bank && bankBoard) {
@@ -109,7 +117,7 @@ export function renderInstallationProfileReport(r: InstallationProfileResult, cu
         `  at the supply (${main.board}): billing power factor ${billingPowerFactorText(main.before.energy.billingPf)} → ${billingPowerFactorText(main.after!.energy.billingPf)}; peak line current ${fixed(Math.max(...main.before.conductors.filter((c) => c.conductor !== 'N').map((c) => c.maxA)), 1)} A → ${fixed(Math.max(...main.after!.conductors.filter((c) => c.conductor !== 'N').map((c) => c.maxA)), 1)} A`,
       );
   }
-  parts.push(section('Cautions'), ...r.cautions.map((c) => `  - ${c}`));
+  parts.push(...warningLines(r.warnings), section('Cautions'), ...r.cautions.map((c) => `  - ${c}`));
   return `${parts.join('\n')}\n`;
 }
 

@@ -212,8 +212,13 @@ export function renderProfileReport(r: ProfileResult, currency: string, label: P
   ];
   if (r.bank) parts.push(section('Automatic bank over the profile'), bankLines(r));
   else if (r.bankNotSized) parts.push(section('Automatic bank over the profile'), noBankLines(r.bankNotSized.words));
-  parts.push(section('Cautions'), ...r.cautions.map((c) => `  - ${c}`));
+  parts.push(...warningLines(r.warnings), section('Cautions'), ...r.cautions.map((c) => `  - ${c}`));
   return `${parts.join('\n')}\n`;
+}
+
+/** The study's warnings under their heading, each marked; nothing when there are none. */
+export function warningLines(warnings: readonly string[]): string[] {
+  return warnings.length ? [section('Warnings'), ...warnings.map((w) => wrapText(`! ${w}`, '  ', '    '))] : [];
 }
 
 /** A board's scenarios as a table, a row per scenario. */

@@ -5,6 +5,7 @@ import type { CapacitorDischarge } from '../correction/capacitorDischarge.js';
 import type { StepChannel } from './bankController.js';
 import { PROFILE_DEFAULTS } from './profileDefaults.js';
 import type { SequenceReport } from './checkIntervalSequence.js';
+import type { ProfileSummary } from './summariseFigures.js';
 import { groupDigits } from '../_internal/groupDigits.js';
 
 /** Cautions printed with every profile result. */
@@ -110,4 +111,19 @@ export function intervalSequenceWords(s: SequenceReport, fillOption = true): str
   if (s.ambiguousTimes) words.push(`${s.ambiguousTimes} wall-clock times fall in the repeated hour when clocks go back: placed in row order`);
   if (s.irregularSteps) words.push(s.irregularSteps === 1 ? 'one step between rows is not a whole number of intervals' : `${s.irregularSteps} steps between rows are not a whole number of intervals`);
   return words;
+}
+
+/**
+ * A neutral above its limit in any interval, in words (as `trivar solve` warns of one solve): the hours, the
+ * peak and when, the limit and where it comes from. `fromStudy`: the limit is the file's profile.limits.neutralA,
+ * not the neutral's rating. `board` names the board on an installation.
+ */
+export function neutralOverLimitWarnings(summary: ProfileSummary, fromStudy: boolean, board?: string): string[] {
+  const n = summary.conductors.find((c) => c.conductor === 'N');
+  if (!n || n.ratingA === null || n.hoursAboveLimit === null || n.hoursAboveLimit <= 0) return [];
+  const limit = fromStudy ? `the study's ${n.ratingA} A neutral limit (profile.limits.neutralA)` : `its ${n.ratingA} A rating`;
+  const hours = n.hoursAboveLimit < 10 ? n.hoursAboveLimit.toFixed(2) : n.hoursAboveLimit.toFixed(1);
+  return [
+    `${board ? `${board}: ` : ''}neutral current above ${limit} for ${hours} h of the ${summary.hours < 10 ? summary.hours.toFixed(2) : summary.hours.toFixed(1)} h, peak ${n.maxA.toFixed(1)} A at ${n.maxAt}${fromStudy ? '' : ': a neutral carrying more than its rating overheats; check its size against local wiring rules'}`,
+  ];
 }

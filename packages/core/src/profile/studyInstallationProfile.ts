@@ -28,7 +28,7 @@ import { switchBank } from './simulateBank.js';
 import { recordInterval, type IntervalFigures } from './solveBatch.js';
 import { profileClock, resolveLimits, type ProfileBankResult, type ProfileStudyOptions } from './studyProfile.js';
 import { summariseFigures, type ProfileSummary, type ResolvedLimits, type SummaryContext } from './summariseFigures.js';
-import { PROFILE_CAUTIONS, type NoBankSized } from './profileWording.js';
+import { neutralOverLimitWarnings, PROFILE_CAUTIONS, type NoBankSized } from './profileWording.js';
 import { clearRoundOff, conductorFloorA } from './intervalRoundOff.js';
 import { listedBanksInService, type ListedBankInService } from '../analysis/banksInServiceWords.js';
 
@@ -101,6 +101,8 @@ export interface InstallationProfileResult {
   readonly bank: (ProfileBankResult & { readonly board: string; readonly meter: BankMeter | null }) | null;
   /** Why --bank sized and simulated no bank on the board named (the need at the cover percentile is 0); null otherwise. */
   readonly bankNotSized: (NoBankSized & { readonly board: string }) | null;
+  /** What the data shows that needs acting on, board by board: a neutral above its limit in any interval (hours, peak). */
+  readonly warnings: readonly string[];
   readonly cautions: readonly string[];
 }
 
@@ -217,6 +219,13 @@ export function studyInstallationProfile(input: InstallationProfileInput, option
   );
   const withBank = outcome && 'bank' in outcome ? outcome : null;
   const afterFigures = withBank ? after : null;
+  const boardResults = boards.map((board, b): InstallationProfileBoard => ({
+    board: board.name,
+    fedFrom: b === 0 ? null : names[installation.subBoards[b - 1]!.fedFrom]!,
+    limits: contexts[b]!.limits,
+    before: summariseFigures(before[b]!, contexts[b]!),
+    after: afterFigures ? summariseFigures((afterFigures as IntervalFigures[])[b]!, contexts[b]!) : null,
+  }));
   const result: InstallationProfileResult = {
     installation: installation.name,
     phaseNames: conventionsOf(installation.main).phaseNames,
@@ -227,13 +236,7 @@ export function studyInstallationProfile(input: InstallationProfileInput, option
     undriven: input.undriven ?? null,
     banksInService: listedBanksInService(installation),
     replacedBank: input.replacedBank ?? null,
-    boards: boards.map((board, b) => ({
-      board: board.name,
-      fedFrom: b === 0 ? null : names[installation.subBoards[b - 1]!.fedFrom]!,
-      limits: contexts[b]!.limits,
-      before: summariseFigures(before[b]!, contexts[b]!),
-      after: afterFigures ? summariseFigures((afterFigures as IntervalFigures[])[b]!, contexts[b]!) : null,
-    })),
+    boards: boardResults,
     bank: withBank
       ? {
           board: names[bankAt]!,
@@ -242,6 +245,8 @@ export function studyInstallationProfile(input: InstallationProfileInput, option
         }
       : null,
     bankNotSized: outcome && 'notSized' in outcome ? { board: names[bankAt]!, ...outcome.notSized } : null,
+    // profile.limits.neutralA is the main board's limit; a sub-board's neutral is judged against its rating.
+    warnings: boardResults.flatMap((r, b) => neutralOverLimitWarnings(r.before, b === 0 && input.profile?.limits?.neutralA !== undefined, r.board)),
     cautions: PROFILE_CAUTIONS,
   };
   const meterFigures = withBank && meter && meterBefore && meterAfter ? { point: meter.point, before: meterBefore, after: meterAfter as IntervalFigures } : null;

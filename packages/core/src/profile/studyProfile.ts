@@ -19,7 +19,7 @@ import { bankOverProfile } from './bankOverProfile.js';
 import { allocateFigures, solveBatch, type BatchSolveOptions, type IntervalFigures } from './solveBatch.js';
 import { summariseFigures, type ProfileSummary, type ResolvedLimits, type SummaryContext } from './summariseFigures.js';
 import { createZoneClock, monthKeyOf } from './zoneClock.js';
-import { PROFILE_CAUTIONS, type NoBankSized } from './profileWording.js';
+import { neutralOverLimitWarnings, PROFILE_CAUTIONS, type NoBankSized } from './profileWording.js';
 import { assertProfileInput } from '../board/modelGuards.js';
 import { judgedNominalOf } from '../board/nominalVoltages.js';
 
@@ -141,6 +141,8 @@ export interface ProfileResult {
   readonly bank: ProfileBankResult | null;
   /** Why --bank sized and simulated no bank (the need at the cover percentile is 0); null otherwise. */
   readonly bankNotSized: NoBankSized | null;
+  /** What the data shows that needs acting on: a neutral above its limit in any interval (hours, peak). */
+  readonly warnings: readonly string[];
   readonly cautions: readonly string[];
 }
 
@@ -308,6 +310,7 @@ export function studyProfile(input: ProfileStudyInput, options: ProfileStudyOpti
     before: beforeSummary,
     bank,
     bankNotSized: withBank && 'notSized' in withBank ? withBank.notSized : null,
+    warnings: neutralOverLimitWarnings(beforeSummary, input.profile?.limits?.neutralA !== undefined),
     cautions: PROFILE_CAUTIONS,
   };
   return { result, utcMs: input.utcMs, before, after, connectedKvar, label, nominalLineToNeutralV: judgedNominalOf(board).ln };

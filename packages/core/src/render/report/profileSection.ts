@@ -111,6 +111,7 @@ function bankBlock(b: ProfileBankResult, where = ''): ReportBlock {
 export function profileSection(p: ProfileResult, charts: readonly ProfileChart[], naming: PhaseNaming = p.phaseNames): ReportSection {
   const blocks = boardBlocks({ ...p, currentsCaption: 'Conductor currents over the period' }, charts, naming, 'profile-');
   if (p.bank) blocks.push(bankBlock(p.bank));
+  if (p.warnings.length) blocks.push({ kind: 'list', tone: 'warning', items: p.warnings });
   if (p.bank?.warnings.length) blocks.push({ kind: 'list', tone: 'warning', items: p.bank.warnings });
   if (p.cautions.length) blocks.push({ kind: 'list', tone: 'caution', items: p.cautions });
   return { id: 'profile', title: 'Load over time', blocks };
@@ -184,6 +185,7 @@ export function installationProfileSections(
         ],
       });
   }
+  if (r.warnings.length) overview.push({ kind: 'list', tone: 'warning', items: r.warnings });
   if (r.cautions.length) overview.push({ kind: 'list', tone: 'caution', items: r.cautions });
   const boards = r.boards.map((b): ReportSection => {
     const id = `profile-${ids.get(b.board)!}`;
