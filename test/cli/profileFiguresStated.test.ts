@@ -158,4 +158,25 @@ profile: { limits: { neutralA: 16 } }
       expect(text).toContain("! neutral current above the study's 16 A neutral limit (profile.limits.neutralA) for 0.50 h of the 1.00 h, peak 21.5 A at 2026-03-09 18:00 Cautions");
     });
   });
+
+  describe('a metered phase total and a load on that phase are not both counted', () => {
+    const SHOP = 'test/fixtures/profile/print-shop.yaml';
+    it('a column for a load on the metered phase is refused, naming both columns', () => {
+      const r = runTrivar(['profile', SHOP, '--data', 'test/fixtures/profile/print-shop-phase-and-dryers.csv']);
+      expect(r.code).toBe(3);
+      expect(r.stderr).toContain('header ("phase A" and "Dryers"): expected a metered phase total or columns for the loads on that phase, not both');
+      expect(r.stderr).toContain('"Dryers" (A-N)');
+      expect(r.stderr).not.toContain('"Compressor"');
+    });
+    it('--unlisted-at-rating would keep a load of the metered phase on: refused; the other phases\' loads are not', () => {
+      const data = 'test/fixtures/profile/print-shop-phase-a-metered.csv';
+      const r = runTrivar(['profile', SHOP, '--data', data, '--unlisted-at-rating']);
+      expect(r.code).toBe(3);
+      expect(r.stderr).toContain('--unlisted-at-rating holds "Dryers" (A-N) on at its rating');
+      expect(r.stderr).not.toContain('Kettle room');
+      // Without it the dryers count as off, and phase A carries the metered 8 and 9 kW alone: 8.5 kWh.
+      const json = JSON.parse(runTrivar(['profile', SHOP, '--data', data, '--json']).stdout);
+      expect(json.before.energy.phases[0].kWh).toBeCloseTo(8.5, 6);
+    });
+  });
 });

@@ -54,7 +54,8 @@ offset) and whose other headers are "<target> [<quantity>]":
   target    a load name, a group from the board file's profile.groups, or phase A / phase B / phase C;
             on an installation file a load on one board by its name, else "<board>/<load>", and
             "<board>/phase A" for a sub-board's metered phase; "<board>//<load>" always names that
-            board's load alone (where names meet: a load "Sub A/b" beside board "Sub A"'s load "b")
+            board's load alone (where names meet: a load "Sub A/b" beside board "Sub A"'s load "b");
+            a phase is metered whole: no column (nor --unlisted-at-rating) for a load on it as well
   quantity  x (fraction of rating) | kW | kW and kvar | kW and pf | A and pf, each of a pair its own
             column ("oven [kW]", "oven [pf]"; pf < 0 = leading)
 Intervals from 1 s to 1 h. Gaps and repeated times are reported; gaps stay out of every figure
