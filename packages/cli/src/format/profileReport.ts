@@ -1,5 +1,5 @@
 /** ProfileResult → the text report of `trivar profile`. */
-import { billingPowerFactorText, contactorLifeWords, intervalSequenceWords, labellerOf, type PhaseLabeller, type ProfileBankResult, type ProfileResult, type ProfileSummary, type ScenarioResult, type BoardScenarios, type VoltageUnbalanceLimit } from '@trivar/core';
+import { belowTargetWords, billingPowerFactorText, contactorLifeWords, intervalSequenceWords, labellerOf, type PhaseLabeller, type ProfileBankResult, type ProfileResult, type ProfileSummary, type ScenarioResult, type BoardScenarios, type VoltageUnbalanceLimit } from '@trivar/core';
 import { fixed, renderTable, section, thousands } from './textTable.js';
 import { wrapText } from './wrapText.js';
 
@@ -144,28 +144,16 @@ export function bankLines(r: { readonly bank: ProfileResult['bank']; readonly be
       b.yearsToContactorLife === null ? '' : ` — the busiest step ${contactorLifeWords(b.yearsToContactorLife)}`
     }`,
     `  billing power factor ${billingPowerFactorText(r.before.energy.billingPf)} → ${billingPowerFactorText(b.after.energy.billingPf)}; leading import ${hours(r.before.leadingHours)} h → ${hours(b.after.leadingHours)} h`,
-    ...belowTargetLines(b, pf),
+    ...belowTargetLines(b),
     `  largest voltage rise from the bank ${fixed(b.voltageRisePercent, 2)} % of nominal (${b.voltageRiseAt}); highest voltage with it ${fixed(Math.max(...b.after.voltages.map((v) => v.maxPercent)), 1)} %`,
   ];
   return lines.join('\n');
 }
 
 /** The hours the board stays below the target with the bank, and why, where there are any. */
-function belowTargetLines(b: ProfileBankResult, pf: (x: number) => string): string[] {
-  const t = b.belowTarget;
-  if (t.hours <= 0) return [];
-  const set = b.settings;
-  const smallest = Math.min(...b.steps.map((s) => s.kvar));
-  const other = t.hours - t.allStepsInHours - t.underResponseHours - t.stepTooCoarseHours;
-  const why = [
-    ...(t.allStepsInHours > 0 ? [`${hours(t.allStepsInHours)} h with every step in (the bank too small for that load)`] : []),
-    ...(t.underResponseHours > 0
-      ? [`${hours(t.underResponseHours)} h with the shortfall under the switching threshold (${fixed(set.responseShare, 2)} × ${fixed(smallest, 1)} kvar = ${fixed(set.responseShare * smallest, 2)} kvar: no step closes for it)`]
-      : []),
-    ...(t.stepTooCoarseHours > 0 ? [`${hours(t.stepTooCoarseHours)} h with no step small enough to stay under ${pf(set.upperPf!)} (steps coarse for this band at that load)`] : []),
-    ...(other > 1e-9 ? [`${hours(other)} h with the controller on its way (switching delay, a step waiting out its discharge${b.steps.some((s) => s.channel !== 'ABC') ? ', or a phase corrected on its own' : ''})`] : []),
-  ];
-  return [wrapText(`board PF below ${pf(set.targetPf)} with the bank: ${hours(t.hours)} h of import — ${why.join('; ')}`, '  ', '    ')];
+function belowTargetLines(b: ProfileBankResult): string[] {
+  const words = belowTargetWords(b);
+  return words ? [wrapText(words, '  ', '    ')] : [];
 }
 
 /** Why `--bank` gave no bank, under the heading the bank would have had. */

@@ -6,6 +6,7 @@ import type { StepChannel } from './bankController.js';
 import { PROFILE_DEFAULTS } from './profileDefaults.js';
 import type { SequenceReport } from './checkIntervalSequence.js';
 import type { ProfileSummary } from './summariseFigures.js';
+import type { ProfileBankResult } from './studyProfile.js';
 import { groupDigits } from '../_internal/groupDigits.js';
 
 /** Cautions printed with every profile result. */
@@ -126,4 +127,28 @@ export function neutralOverLimitWarnings(summary: ProfileSummary, fromStudy: boo
   return [
     `${board ? `${board}: ` : ''}neutral current above ${limit} for ${hours} h of the ${summary.hours < 10 ? summary.hours.toFixed(2) : summary.hours.toFixed(1)} h, peak ${n.maxA.toFixed(1)} A at ${n.maxAt}${fromStudy ? '' : ': a neutral carrying more than its rating overheats; check its size against local wiring rules'}`,
   ];
+}
+
+/**
+ * The hours the board stays below the target with the bank, and why (ProfileBankResult.belowTarget), in one
+ * sentence; null where there are none. `trivar profile` prints it and the report states it.
+ */
+export function belowTargetWords(b: ProfileBankResult): string | null {
+  const t = b.belowTarget;
+  if (t.hours <= 0) return null;
+  const set = b.settings;
+  const hours = (h: number) => (h < 10 ? h.toFixed(2) : h.toFixed(1));
+  // Three decimals where a band edge needs them (0.995 must not read as 0.99).
+  const pf = (x: number) => x.toFixed(Math.round(x * 100) === x * 100 ? 2 : 3);
+  const smallest = Math.min(...b.steps.map((s) => s.kvar));
+  const other = t.hours - t.allStepsInHours - t.underResponseHours - t.stepTooCoarseHours;
+  const why = [
+    ...(t.allStepsInHours > 0 ? [`${hours(t.allStepsInHours)} h with every step in (the bank too small for that load)`] : []),
+    ...(t.underResponseHours > 0
+      ? [`${hours(t.underResponseHours)} h with the shortfall under the switching threshold (${set.responseShare.toFixed(2)} × ${smallest.toFixed(1)} kvar = ${(set.responseShare * smallest).toFixed(2)} kvar: no step closes for it)`]
+      : []),
+    ...(t.stepTooCoarseHours > 0 ? [`${hours(t.stepTooCoarseHours)} h with no step small enough to stay under ${pf(set.upperPf!)} (steps coarse for this band at that load)`] : []),
+    ...(other > 1e-9 ? [`${hours(other)} h with the controller on its way (switching delay, a step waiting out its discharge${b.steps.some((s) => s.channel !== 'ABC') ? ', or a phase corrected on its own' : ''})`] : []),
+  ];
+  return `board PF below ${pf(set.targetPf)} with the bank: ${hours(t.hours)} h of import — ${why.join('; ')}`;
 }

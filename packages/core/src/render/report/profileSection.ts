@@ -10,7 +10,7 @@ import type { InstallationProfileResult } from '../../profile/studyInstallationP
 import type { ProfileSummary, ResolvedLimits } from '../../profile/summariseFigures.js';
 import { fixed } from '../svgText.js';
 import { billingPowerFactorText } from '../../profile/billingPowerFactor.js';
-import { contactorLifeWords, intervalSequenceWords } from '../../profile/profileWording.js';
+import { belowTargetWords, contactorLifeWords, intervalSequenceWords } from '../../profile/profileWording.js';
 import type { ReportBlock, ReportSection } from './reportDocument.js';
 import { labellerOf, type PhaseNaming } from '../../board/conventions/phaseNames.js';
 
@@ -101,6 +101,8 @@ function bankBlock(b: ProfileBankResult, where = ''): ReportBlock {
       ['Busiest step’s contactor and its typical life', contactorLifeWords(b.yearsToContactorLife, 'it') ?? '—'],
       ['Reconnection after a step goes off', `${b.settings.reconnectSeconds} s (discharge time ${b.settings.dischargeSeconds} s, ${b.settings.dischargeRule})`],
       ['Switching within an interval', b.withinInterval.words],
+      ...(belowTargetWords(b) ? ([['Hours below the target with the bank', belowTargetWords(b)!]] as [string, string][]) : []),
+      ...(b.targetOutOfReach ? ([['Target out of reach of the sized steps', b.targetOutOfReach.words]] as [string, string][]) : []),
     ],
   };
 }
