@@ -272,6 +272,28 @@ describe('trivar report', () => {
     expect(readFileSync(join(dir, 'store.md'), 'utf8')).toContain('](store-phasors.svg)');
   });
 
+  it('the format follows the report file\'s extension; a --format that contradicts it is refused', () => {
+    const dir = scratch();
+    const md = runTrivar(['report', 'examples/corner-bakery.yaml', '-o', join(dir, 'bakery.md')]);
+    expect(md.code).toBe(0);
+    expect(readFileSync(join(dir, 'bakery.md'), 'utf8')).toMatch(/^# /);
+    expect(readdirSync(dir)).toContain('bakery-phasors.svg');
+    const htm = runTrivar(['report', 'examples/corner-bakery.yaml', '-o', join(dir, 'bakery.HTM')]);
+    expect(htm.code).toBe(0);
+    expect(readFileSync(join(dir, 'bakery.HTM'), 'utf8')).toMatch(/^<!doctype html>/i);
+    const mdInHtml = runTrivar(['report', 'examples/corner-bakery.yaml', '--format', 'md', '-o', join(dir, 'clash.html')]);
+    expect(mdInHtml.code).toBe(2);
+    expect(mdInHtml.stderr).toContain('--format md writes Markdown, but the report file');
+    expect(mdInHtml.stderr).toContain('(.html)');
+    const htmlInMd = runTrivar(['report', 'examples/corner-bakery.yaml', '--format', 'html', '-o', join(dir, 'clash.md')]);
+    expect(htmlInMd.code).toBe(2);
+    expect(htmlInMd.stderr).toContain('(.md)');
+    expect(readdirSync(dir).filter((f) => f.startsWith('clash'))).toEqual([]);
+    // No extension that names a format: HTML unless --format says otherwise.
+    expect(runTrivar(['report', 'examples/corner-bakery.yaml', '-o', join(dir, 'plain.txt')]).code).toBe(0);
+    expect(readFileSync(join(dir, 'plain.txt'), 'utf8')).toMatch(/^<!doctype html>/i);
+  });
+
   it('never overwrites its input', () => {
     const dir = scratch();
     const board = join(dir, 'board.yaml');

@@ -138,7 +138,27 @@ describe('hours below the target with a banded bank', () => {
     const col = (xs: number[]) => Float64Array.from(xs, (x) => x * 1000);
     const zero = new Float64Array(4);
     const f = { count: 4, lineA: [zero], neutralA: zero, phaseV: [zero], lineToLineV: [], phaseW: [col([30, 30, 30, -5])], phaseVar: [col([5, 10, 20, 10])], unbalancePercent: zero, lineDeviationPercent: zero };
-    expect(hoursBelowTarget(f, 0.97, 0.995, 10, 900_000)).toEqual({ hours: 0.5, stepTooCoarseHours: 0.25 });
+    expect(hoursBelowTarget(f, { targetPf: 0.97, upperPf: 0.995, responseShare: 0.67 }, { smallestKvar: 10, totalKvar: 20, connectedKvar: null }, 900_000)).toEqual({
+      hours: 0.5,
+      allStepsInHours: 0,
+      underResponseHours: 0,
+      stepTooCoarseHours: 0.25,
+    });
+  });
+  it('without a band: the hours with every step in, and those with the shortfall under the switching threshold', () => {
+    // 30 kW; tan(acos 0.97) = 0.2506 → the target at 7.52 kvar. Threshold 0.67 × 10 kvar = 6.7 kvar.
+    // 30/5: in target. 30/10 (shortfall 2.48 < 6.7, 10 kvar of 20 in): under the threshold. 30/40 with all
+    // 20 kvar in: the bank too small. 30/20 with 10 kvar in (shortfall 12.5 > 6.7): the controller on its way.
+    const col = (xs: number[]) => Float64Array.from(xs, (x) => x * 1000);
+    const zero = new Float64Array(4);
+    const f = { count: 4, lineA: [zero], neutralA: zero, phaseV: [zero], lineToLineV: [], phaseW: [col([30, 30, 30, 30])], phaseVar: [col([5, 10, 40, 20])], unbalancePercent: zero, lineDeviationPercent: zero };
+    const connectedKvar = Float64Array.from([10, 10, 20, 10]);
+    expect(hoursBelowTarget(f, { targetPf: 0.97, upperPf: null, responseShare: 0.67 }, { smallestKvar: 10, totalKvar: 20, connectedKvar }, 900_000)).toEqual({
+      hours: 0.75,
+      allStepsInHours: 0.25,
+      underResponseHours: 0.25,
+      stepTooCoarseHours: 0,
+    });
   });
 });
 

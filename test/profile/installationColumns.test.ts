@@ -21,7 +21,7 @@ function issuesOf(run: () => unknown): { path: string; code: string; message: st
 
 describe('installation column plan', () => {
   it('finds loads on any board, and metered phases on the board named', () => {
-    const plan = planInstallationColumns(installation, ['time', 'Cafe [kW]', 'Pottery/Large kiln [x]', 'phase L1 [kW]', 'Print room/phase C [kW]', 'Print room/Press [x]'], {
+    const plan = planInstallationColumns(installation, ['time', 'Cafe [kW]', 'Pottery/Large kiln [x]', 'phase L1 [kW]', 'Print room/phase C [kW]', 'Print room/Drying cabinet [x]'], {
       groups: {},
     });
     const byName = new Map(plan.targets.map((t) => [t.name, t.loads.map((l) => [plan.board.loads[l]!.name, plan.loadBoards[l]])]));
@@ -29,9 +29,18 @@ describe('installation column plan', () => {
     expect(byName.get('Pottery/Large kiln')).toEqual([['Pottery/Large kiln', 1]]);
     expect(byName.get('phase L1')).toEqual([['Mill intake/metered phase A', 0]]);
     expect(byName.get('Print room/phase C')).toEqual([['Print room/metered phase C', 2]]);
-    expect(byName.get('Print room/Press')).toEqual([['Print room/Press', 2]]);
+    expect(byName.get('Print room/Drying cabinet')).toEqual([['Print room/Drying cabinet', 2]]);
     // Every other load of the file is undriven, by its board-qualified name.
-    expect(plan.undriven).toEqual(['Mill intake/Workshop lighting', 'Mill intake/Compressor', 'Pottery/Small kiln', 'Pottery/Wheels and pug mill', 'Print room/Drying cabinet']);
+    expect(plan.undriven).toEqual(['Mill intake/Workshop lighting', 'Mill intake/Compressor', 'Pottery/Small kiln', 'Pottery/Wheels and pug mill', 'Print room/Press']);
+  });
+
+  it('a metered phase total beside a column for a load on that phase of the same board is refused, naming both', () => {
+    // The press (ABC-delta) draws from phase C of the print room, which "Print room/phase C" meters whole.
+    const issues = issuesOf(() => planInstallationColumns(installation, ['time', 'Print room/phase C [kW]', 'Print room/Press [x]']));
+    expect(issues).toEqual([expect.objectContaining({ path: 'header ("Print room/phase C" and "Print room/Press")', code: 'counted_twice' })]);
+    expect(issues[0]!.message).toContain('"Print room/Press" (ABC-delta)');
+    // The same phase at the main board is another board's total: no overlap with the print room's press.
+    expect(planInstallationColumns(installation, ['time', 'phase C [kW]', 'Print room/Press [x]']).targets).toHaveLength(2);
   });
 
   it('groups take bare or qualified names; a wrong member is named by its place in the group', () => {

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { normaliseBoard, parseBoard } from '@trivar/core';
-import { sizeBankSteps } from '../../packages/core/src/profile/sizeBankSteps.js';
+import { closesToTarget, sizeBankSteps } from '../../packages/core/src/profile/sizeBankSteps.js';
 import type { IntervalFigures } from '../../packages/core/src/profile/solveBatch.js';
 
 // A board only supplies its phases here; the need comes from the interval figures given.
@@ -15,19 +15,63 @@ function figures(kw: number, kvar: number, count = 10): IntervalFigures {
 }
 
 describe('sizeBankSteps: equal steps up to stepCount, only as many as the need calls for', () => {
-  const options = { targetPf: 1, coverShare: 0.95, stepCount: 6, perPhase: false };
-  it('a 3.3 kvar need takes two 2.5 kvar steps, not six (15 kvar)', () => {
-    const { steps, needKvar } = sizeBankSteps(board, figures(0, 1.1), options);
-    expect(needKvar.ABC).toBeCloseTo(3.3, 9);
+  const options = { targetPf: 1, coverShare: 0.95, stepCount: 6, perPhase: false, responseShare: 0.67 };
+  it('a 4.5 kvar need takes two 2.5 kvar steps, not six (15 kvar)', () => {
+    // The second closes: 2.0 kvar left after the first > 0.67 × 2.5 = 1.675 kvar.
+    const { steps, needKvar, reaches } = sizeBankSteps(board, figures(0, 1.5), options);
+    expect(needKvar.ABC).toBeCloseTo(4.5, 9);
     expect(steps.map((s) => s.kvar)).toEqual([2.5, 2.5]);
+    expect(reaches).toEqual({ ABC: true });
   });
   it('a large need takes all six steps, each rounded up to 2.5 kvar', () => {
     const { steps } = sizeBankSteps(board, figures(0, 10), options);
     expect(steps.map((s) => s.kvar)).toEqual([5, 5, 5, 5, 5, 5]);
   });
   it('per phase: 0.5 kvar units, at most stepCount per phase', () => {
-    const { steps } = sizeBankSteps(board, figures(0, 1.2), { ...options, perPhase: true });
+    // 1.4 kvar a phase: 0.4 kvar left for the third step > 0.67 × 0.5 = 0.335 kvar.
+    const { steps } = sizeBankSteps(board, figures(0, 1.4), { ...options, perPhase: true });
     expect(steps.filter((s) => s.channel === 'A').map((s) => s.kvar)).toEqual([0.5, 0.5, 0.5]);
     expect(steps).toHaveLength(9);
+  });
+});
+
+describe('sizeBankSteps: steps whose last one the controller closes (C/k threshold 0.67 × the smallest step)', () => {
+  const options = { targetPf: 0.95, coverShare: 0.95, stepCount: 6, perPhase: false, responseShare: 0.67 };
+  it('a steady 2.77 kvar need: not two 2.5 kvar steps (0.27 kvar left after one, under 1.68 kvar) but one 3 kvar step', () => {
+    // 20 kW at 9.34 kvar (PF 0.906): 9.34 − 20·tan(acos 0.95) = 9.34 − 6.574 = 2.77 kvar.
+    const { steps, needKvar, reaches } = sizeBankSteps(board, figures(20 / 3, 9.34 / 3), options);
+    expect(needKvar.ABC).toBeCloseTo(2.766, 3);
+    // 3 × 1 kvar closes too (2.77, 1.77, 0.77 > 0.67) and holds every interval as well: fewer steps win.
+    expect(steps.map((s) => s.kvar)).toEqual([3]);
+    expect(reaches).toEqual({ ABC: true });
+    expect(closesToTarget(2.766, 3, 1, 0.67)).toBe(true);
+    expect(closesToTarget(2.766, 1, 3, 0.67)).toBe(true);
+    expect(closesToTarget(2.766, 2.5, 2, 0.67)).toBe(false);
+  });
+  it('a need that varies: of the sizes that close up to the sized need, the one leaving the fewest intervals short', () => {
+    // Needs 0.8, 1.2, 1.6, 2.0, 2.4, 2.77 kvar; sized for 2.77 (the top one). 2.5 kvar steps do not close up to
+    // it. Of those that do, by the controller's rule: 3 × 1 kvar leaves 1.2, 1.6 and 2.4 short (0.2, 0.6, 0.4
+    // kvar left, under 0.67); 2 × 1.5 leaves 0.8, 1.6, 2.0, 2.4 short (under 1.005 kvar); 1 × 3 leaves the
+    // four needs up to 2.0 short (under 2.01 kvar). Three 1 kvar steps.
+    const needs = [0.8, 1.2, 1.6, 2.0, 2.4, 2.77];
+    const f = figures(0, 0, needs.length);
+    needs.forEach((q, i) => f.phaseVar.forEach((col) => ((col as Float64Array)[i] = (q / 3) * 1000)));
+    const { steps, needKvar, reaches } = sizeBankSteps(board, f, { ...options, targetPf: 1, coverShare: 1 });
+    expect(needKvar.ABC).toBeCloseTo(2.77, 9);
+    expect(reaches).toEqual({ ABC: true });
+    expect(steps.map((s) => s.kvar)).toEqual([1, 1, 1]);
+  });
+  it('a 3.3 kvar need at targetPf 1: 2.5, 1, 1.5, 2 and 3 kvar steps all leave the last one under its threshold; one 3.5 kvar step closes', () => {
+    const { steps } = sizeBankSteps(board, figures(0, 1.1), { ...options, targetPf: 1 });
+    expect(steps.map((s) => s.kvar)).toEqual([3.5]);
+  });
+  it('per phase 1.2 kvar: 0.5 and 1 kvar steps leave 0.2 kvar, under the threshold; one 1.5 kvar step per phase', () => {
+    const { steps } = sizeBankSteps(board, figures(0, 1.2), { ...options, targetPf: 1, perPhase: true });
+    expect(steps.filter((s) => s.channel === 'B').map((s) => s.kvar)).toEqual([1.5]);
+  });
+  it('a need below every step\'s threshold (0.3 kvar; the smallest three-phase step 1 kvar closes above 0.67): the catalogue step, flagged as out of reach', () => {
+    const { steps, reaches } = sizeBankSteps(board, figures(0, 0.1), { ...options, targetPf: 1 });
+    expect(steps.map((s) => s.kvar)).toEqual([2.5]);
+    expect(reaches).toEqual({ ABC: false });
   });
 });

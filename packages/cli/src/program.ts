@@ -54,7 +54,8 @@ offset) and whose other headers are "<target> [<quantity>]":
   target    a load name, a group from the board file's profile.groups, or phase A / phase B / phase C;
             on an installation file a load on one board by its name, else "<board>/<load>", and
             "<board>/phase A" for a sub-board's metered phase; "<board>//<load>" always names that
-            board's load alone (where names meet: a load "Sub A/b" beside board "Sub A"'s load "b")
+            board's load alone (where names meet: a load "Sub A/b" beside board "Sub A"'s load "b");
+            a phase is metered whole: no column (nor --unlisted-at-rating) for a load on it as well
   quantity  x (fraction of rating) | kW | kW and kvar | kW and pf | A and pf, each of a pair its own
             column ("oven [kW]", "oven [pf]"; pf < 0 = leading)
 Intervals from 1 s to 1 h. Gaps and repeated times are reported; gaps stay out of every figure
@@ -151,7 +152,7 @@ every board and bank.
 
 Examples:
   trivar report examples/riverside-cold-store.yaml -o cold-store.html
-  trivar report examples/corner-bakery.yaml --format md -o bakery.md   (writes bakery-*.svg beside it)
+  trivar report examples/corner-bakery.yaml -o bakery.md               (Markdown, from the extension; writes bakery-*.svg beside it)
   trivar report examples/maple-court-riser.yaml -o riser.html         (an installation: every board and feeder)
   trivar report examples/riverside-cold-store.yaml --hand-figures examples/hand-figures/riverside-cold-store.yaml -o store.html`;
 
@@ -340,7 +341,7 @@ export function createProgram(io: CliIo, outcome: RunOutcome = { exitCode: EXIT.
       .description('write a self-contained report of the board or installation (HTML, or Markdown with SVG figures beside it)')
       .argument('<board>', 'board or installation file (YAML or JSON), or - for standard input')
       .option('-o, --output <file>', 'report file to write (HTML may go to standard output)')
-      .addOption(new Option('--format <kind>', 'report format').choices(['html', 'md']).default('html'))
+      .addOption(new Option('--format <kind>', "report format (default: the one the -o file's extension names, .md or .html/.htm; else html)").choices(['html', 'md']))
       .option('--no-correction', "leave out the board file's correction study")
       .option('--no-harmonics', "leave out the harmonic study (run when the board file has a harmonics: section or load spectra)")
       .option('--profile-data <file.csv>', 'add a load-over-time section from interval data (columns as for trivar profile --data)')

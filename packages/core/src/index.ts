@@ -175,7 +175,7 @@ export { arrangementDescriptions, arrangementNames, BUILD_VERDICT_WORDS, CORRECT
 export type { ProfileSpec, ScenarioSpec, TariffSpec, ProfileBankSpec, BankStepSpec, ProfileLimitsSpec } from './profile/profileSpec.js';
 export { profileSpecSchema } from './profile/profileSpec.js';
 export { PROFILE_DEFAULTS } from './profile/profileDefaults.js';
-export { contactorLifeWords } from './profile/profileWording.js';
+export { belowTargetWords, contactorLifeWords, intervalSequenceWords } from './profile/profileWording.js';
 export { billingPowerFactor, billingPowerFactorText } from './profile/billingPowerFactor.js';
 export type { BatchNetwork, BatchEdge, DriverSpec, DriverColumns } from './profile/batchNetwork.js';
 export { compileBatchNetwork } from './profile/batchNetwork.js';

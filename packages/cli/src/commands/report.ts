@@ -193,9 +193,25 @@ async function installationDocument(raw: unknown, figures: unknown, options: Rep
   return { doc: buildInstallationReport({ spec, result, correction, correctionComparison, banksPlacement, harmonics, studySections }), result };
 }
 
+/** The formats a report file's extension names. */
+const FORMAT_OF_EXTENSION: Readonly<Record<string, 'html' | 'md'>> = { '.html': 'html', '.htm': 'html', '.md': 'md', '.markdown': 'md' };
+
+/**
+ * The report's format: --format where given, else the one the output file's extension names, else HTML. A
+ * --format that contradicts the extension is refused: Markdown in a .html file (or HTML in a .md one) opens as
+ * the wrong kind of document.
+ */
+export function reportFormatOf(format: 'html' | 'md' | undefined, out: string | undefined): 'html' | 'md' {
+  const extension = out ? extname(out).toLowerCase() : '';
+  const named = FORMAT_OF_EXTENSION[extension];
+  if (format && named && format !== named)
+    throw new UsageError(`--format ${format} writes ${format === 'md' ? 'Markdown' : 'HTML'}, but the report file ${out} has the extension of ${named === 'md' ? 'Markdown' : 'HTML'} (${extension}): name the file ${format === 'md' ? 'e.g. report.md' : 'e.g. report.html'}, or leave out --format to follow the extension`);
+  return format ?? named ?? 'html';
+}
+
 export async function runReport(file: string, options: ReportCommandOptions, io: CliIo, footer: string): Promise<void> {
-  const format = options.format ?? 'html';
   const out = options.output;
+  const format = reportFormatOf(options.format, out);
   if (format === 'md' && !out) throw new UsageError('a Markdown report writes its figures as SVG files beside it: give the report file with -o, e.g. -o board-report.md');
   // As rebalance does: an option that only reads interval data is refused without the data, not silently ignored.
   if (options.timeZone !== undefined && options.profileData === undefined) throw new UsageError('--time-zone reads the times of the interval data: give --profile-data <csv> too, or leave out --time-zone');

@@ -2,6 +2,8 @@
 import { BANKS_IN_SERVICE_BASIS, bankInServiceWords, billingPowerFactorText, labellerOf, type ListedBankInService, type InstallationProfileBoard, type InstallationProfileResult, type InstallationScenarioResult, type PhaseLabeller } from '@trivar/core';
 import {
   bankLines,
+  noBankLines,
+  warningLines,
   currentTable,
   dataLines,
   energyTable,
@@ -15,7 +17,7 @@ import {
   voltageTable,
   worstTable,
 } from './profileReport.js';
-import { fixed, renderTableWithin, section } from './textTable.js';
+import { fixed, renderTableWithin, section, thousands } from './textTable.js';
 import { wrapText } from './wrapText.js';
 
 const hours = (h: number) => (h === 0 ? '0' : h < 10 ? fixed(h, 2) : fixed(h, 1));
@@ -68,7 +70,7 @@ function boardSection(b: InstallationProfileBoard, label: PhaseLabeller): string
     section(`${b.board} — voltages at the board (% of nominal)`),
     voltageTable(b.before, label, b.limits),
     ...thresholdLines(b.before, b),
-    `  energy through the board: ${Math.round(b.before.energy.kWhImport).toLocaleString('en-US')} kWh imported, billing power factor ${billingPowerFactorText(b.before.energy.billingPf)}`,
+    `  energy through the board: ${thousands(b.before.energy.kWhImport)} kWh imported, billing power factor ${billingPowerFactorText(b.before.energy.billingPf)}`,
   ];
 }
 
@@ -76,6 +78,14 @@ function boardSection(b: InstallationProfileBoard, label: PhaseLabeller): string
 function banksInServiceLines(banks: readonly ListedBankInService[], each: 'interval' | 'scenario'): string[] {
   if (!banks.length) return [];
   return [wrapText(`capacitor banks in service in every ${each}, ${BANKS_IN_SERVICE_BASIS}: ${banks.map((b) => bankInServiceWords(b)).join('; ')}`, '  ', '    ')];
+}
+
+/** The intervals with the highest neutral current on every board with a neutral (its incoming feeder's); the main board's highest line current where none has one. */
+function worstSections(r: InstallationProfileResult): string[] {
+  const withNeutral = r.boards.filter((b) => b.before.worstByNeutral.length);
+  const main = r.boards[0]!;
+  if (!withNeutral.length) return [section(`Intervals with the highest line current at ${main.board}`), worstTable(main.before, main.limits.unbalance)];
+  return withNeutral.flatMap((b) => [section(`Intervals with the highest neutral current at ${b.board}${b.fedFrom === null ? '' : ` (its feeder from ${b.fedFrom})`}`), worstTable(b.before, b.limits.unbalance)]);
 }
 
 export function renderInstallationProfileReport(r: InstallationProfileResult, currency: string, label: PhaseLabeller = labellerOf(r.phaseNames)): string {
@@ -93,22 +103,22 @@ export function renderInstallationProfileReport(r: InstallationProfileResult, cu
     energyTable(main.before, label),
     section(`Calendar months at the supply (${main.board})`),
     monthTable(main.before, main.after, currency),
-    section(main.before.worstByNeutral.length ? `Intervals with the highest neutral current at ${main.board}` : `Intervals with the highest line current at ${main.board}`),
-    worstTable(main.before, main.limits.unbalance),
+    ...worstSections(r),
   ];
+  if (r.bankNotSized) parts.push(section(`Automatic bank on ${r.bankNotSized.board} over the profile`), noBankLines(r.bankNotSized.words));
   if (r.bank && bankBoard) {
     parts.push(section(`Automatic bank on ${r.bank.board} over the profile`), bankLines({ bank: r.bank, before: bankBoard.before, limits: bankBoard.limits }));
     const meter = r.bank.meter;
     if (meter)
       parts.push(
-        `  the controller measures ${meter.point === 'origin' ? "at the origin (the supply's terminals, before the service cable)" : `at the incomer of ${meter.point}`}, not at ${r.bank.board}: billing power factor there ${billingPowerFactorText(meter.before.energy.billingPf)} → ${billingPowerFactorText(meter.after.energy.billingPf)}, lagging kvarh ${Math.round(meter.before.energy.kvarhLagging).toLocaleString('en-US')} → ${Math.round(meter.after.energy.kvarhLagging).toLocaleString('en-US')}`,
+        `  the controller measures ${meter.point === 'origin' ? "at the origin (the supply's terminals, before the service cable)" : `at the incomer of ${meter.point}`}, not at ${r.bank.board}: billing power factor there ${billingPowerFactorText(meter.before.energy.billingPf)} → ${billingPowerFactorText(meter.after.energy.billingPf)}, lagging kvarh ${thousands(meter.before.energy.kvarhLagging)} → ${thousands(meter.after.energy.kvarhLagging)}`,
       );
     if (bankBoard !== main)
       parts.push(
         `  at the supply (${main.board}): billing power factor ${billingPowerFactorText(main.before.energy.billingPf)} → ${billingPowerFactorText(main.after!.energy.billingPf)}; peak line current ${fixed(Math.max(...main.before.conductors.filter((c) => c.conductor !== 'N').map((c) => c.maxA)), 1)} A → ${fixed(Math.max(...main.after!.conductors.filter((c) => c.conductor !== 'N').map((c) => c.maxA)), 1)} A`,
       );
   }
-  parts.push(section('Cautions'), ...r.cautions.map((c) => `  - ${c}`));
+  parts.push(...warningLines(r.warnings), section('Cautions'), ...r.cautions.map((c) => `  - ${c}`));
   return `${parts.join('\n')}\n`;
 }
 

@@ -1,10 +1,9 @@
 /** ProfileResult → the text report of `trivar profile`. */
-import { billingPowerFactorText, contactorLifeWords, labellerOf, percentBesideEdges, type PhaseLabeller, type ProfileBankResult, type ProfileResult, type ProfileSummary, type ScenarioResult, type BoardScenarios, type VoltageUnbalanceLimit } from '@trivar/core';
-import { fixed, renderTable, section } from './textTable.js';
+import { belowTargetWords, billingPowerFactorText, contactorLifeWords, intervalSequenceWords, labellerOf, percentBesideEdges, type PhaseLabeller, type ProfileBankResult, type ProfileResult, type ProfileSummary, type ScenarioResult, type BoardScenarios, type VoltageUnbalanceLimit } from '@trivar/core';
+import { fixed, renderTable, section, thousands } from './textTable.js';
 import { wrapText } from './wrapText.js';
 
 const hours = (h: number) => (h === 0 ? '0' : h < 10 ? fixed(h, 2) : fixed(h, 1));
-const thousands = (x: number) => Math.round(x).toLocaleString('en-US');
 const money = (x: number | null) => (x === null ? '-' : fixed(x, 2));
 /** Labels of a board file named A/B/C: what a caller without the board's naming gets. */
 const LETTERED = labellerOf('A/B/C');
@@ -12,17 +11,7 @@ const LETTERED = labellerOf('A/B/C');
 export function dataLines(r: Pick<ProfileResult, 'sequence' | 'intervals' | 'timeZone' | 'undriven' | 'path'>): string[] {
   const s = r.sequence;
   const lines = [`${thousands(r.intervals.count)} intervals of ${r.intervals.intervalSeconds} s, ${r.intervals.first} to ${r.intervals.last} (${r.timeZone})`];
-  if (s) {
-    const gaps = s.gaps.count
-      ? `${s.gaps.count} gap${s.gaps.count === 1 ? '' : 's'}, ${thousands(s.gaps.missingIntervals)} intervals (${hours(s.gaps.missingHours)} h) missing: ${
-          s.fill === 'none' ? 'left out of every figure (--fill-gaps hold or linear fills them)' : `filled by ${s.fill === 'hold' ? 'holding the last reading' : 'linear interpolation'} (${thousands(s.filledIntervals)} intervals made)`
-        }`
-      : 'no gaps';
-    lines.push(gaps);
-    if (s.duplicates.count) lines.push(`${s.duplicates.count} repeated time${s.duplicates.count === 1 ? '' : 's'}: the first reading kept (row${s.duplicates.rows.length === 1 ? '' : 's'} ${s.duplicates.rows.join(', ')}${s.duplicates.count > s.duplicates.rows.length ? ', ...' : ''})`);
-    if (s.ambiguousTimes) lines.push(`${s.ambiguousTimes} wall-clock times fall in the repeated hour when clocks go back: placed in row order`);
-    if (s.irregularSteps) lines.push(s.irregularSteps === 1 ? 'one step between rows is not a whole number of intervals' : `${s.irregularSteps} steps between rows are not a whole number of intervals`);
-  }
+  if (s) lines.push(...intervalSequenceWords(s));
   if (r.undriven && r.undriven.loads.length)
     lines.push(`${r.undriven.loads.length} board load${r.undriven.loads.length === 1 ? '' : 's'} with no column (${r.undriven.loads.slice(0, 4).join(', ')}${r.undriven.loads.length > 4 ? ', ...' : ''}): ${r.undriven.atRating ? 'held at rating' : 'taken as off (--unlisted-at-rating keeps them on)'}`);
   lines.push(`solved on the ${r.path === 'closed-form' ? 'closed-form (Millman) path: phase-to-neutral loads and a neutral conductor' : 'nodal path'}`);
@@ -151,6 +140,7 @@ export function bankLines(r: { readonly bank: ProfileResult['bank']; readonly be
     wrapText(`controller: ${band}, switching threshold ${fixed(set.responseShare, 2)} × smallest step, delay ${set.delaySeconds} s, reconnect after ${set.reconnectSeconds} s${reconnectBasis(set)}`, '  ', '    '),
     wrapText(b.withinInterval.words, '  ', '    '),
     ...b.warnings.map((w) => wrapText(`warning: ${w}`, '  ', '    ')),
+    ...(b.targetOutOfReach ? [wrapText(`warning: ${b.targetOutOfReach.words}`, '  ', '    ')] : []),
     '',
     renderTable(
       [{ header: 'step' }, { header: 'where', align: 'left' }, { header: 'kvar' }, { header: 'closings' }, { header: 'per year' }],
@@ -160,14 +150,21 @@ export function bankLines(r: { readonly bank: ProfileResult['bank']; readonly be
       b.yearsToContactorLife === null ? '' : ` — the busiest step ${contactorLifeWords(b.yearsToContactorLife)}`
     }`,
     `  billing power factor ${billingPowerFactorText(r.before.energy.billingPf)} → ${billingPowerFactorText(b.after.energy.billingPf)}; leading import ${hours(r.before.leadingHours)} h → ${hours(b.after.leadingHours)} h`,
-    ...(b.belowTarget && b.belowTarget.hours > 0
-      ? [
-          `  board PF below ${pf(set.targetPf)} with the bank: ${hours(b.belowTarget.hours)} h of import, ${hours(b.belowTarget.stepTooCoarseHours)} h of them with no step small enough to stay under ${pf(set.upperPf!)} (steps coarse for this band at that load)`,
-        ]
-      : []),
+    ...belowTargetLines(b),
     `  largest voltage rise from the bank ${fixed(b.voltageRisePercent, 2)} % of nominal (${b.voltageRiseAt}); highest voltage with it ${percentBeside(Math.max(...b.after.voltages.map((v) => v.maxPercent)), r.limits)} %`,
   ];
   return lines.join('\n');
+}
+
+/** The hours the board stays below the target with the bank, and why, where there are any. */
+function belowTargetLines(b: ProfileBankResult): string[] {
+  const words = belowTargetWords(b);
+  return words ? [wrapText(words, '  ', '    ')] : [];
+}
+
+/** Why `--bank` gave no bank, under the heading the bank would have had. */
+export function noBankLines(words: string): string {
+  return wrapText(words, '  ', '    ');
 }
 
 /** Why the step waits that long: the practice's discharge time, or the file's setting beside it. */
@@ -208,8 +205,14 @@ export function renderProfileReport(r: ProfileResult, currency: string, label: P
     worstTable(s, r.limits.unbalance),
   ];
   if (r.bank) parts.push(section('Automatic bank over the profile'), bankLines(r));
-  parts.push(section('Cautions'), ...r.cautions.map((c) => `  - ${c}`));
+  else if (r.bankNotSized) parts.push(section('Automatic bank over the profile'), noBankLines(r.bankNotSized.words));
+  parts.push(...warningLines(r.warnings), section('Cautions'), ...r.cautions.map((c) => `  - ${c}`));
   return `${parts.join('\n')}\n`;
+}
+
+/** The study's warnings under their heading, each marked; nothing when there are none. */
+export function warningLines(warnings: readonly string[]): string[] {
+  return warnings.length ? [section('Warnings'), ...warnings.map((w) => wrapText(`! ${w}`, '  ', '    '))] : [];
 }
 
 /**

@@ -99,6 +99,11 @@ export function fixed(x: number, digits: number): string {
   return /^-0\.?0*$/.test(s) ? s.slice(1) : s;
 }
 
+/** A whole number grouped in thousands ("145,800"), with a rounded "-0" shown as "0". */
+export function thousands(x: number): string {
+  return (Math.round(x) || 0).toLocaleString('en-US');
+}
+
 /** A heading line for a report section. */
 export const section = (title: string): string => `\n${title}\n`;
 

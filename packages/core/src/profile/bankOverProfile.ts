@@ -8,7 +8,7 @@ import type { StepChannel, SwitchedStep, SwitchingSettings } from './bankControl
 import { CAPACITOR_DISCHARGE, defaultPractice } from '../correction/capacitorDischarge.js';
 import { maximumOf } from './intervalStatistics.js';
 import { PROFILE_DEFAULTS } from './profileDefaults.js';
-import { shortReconnectWords, stepPlaceWords, switchingWithinIntervalWords } from './profileWording.js';
+import { noBankWords, shortReconnectWords, stepPlaceWords, switchingWithinIntervalWords, targetOutOfReachWords, type NoBankSized } from './profileWording.js';
 import type { ProfileSpec } from './profileSpec.js';
 import type { BankRun } from './simulateBank.js';
 import { sizeBankSteps } from './sizeBankSteps.js';
@@ -35,8 +35,35 @@ export interface BankOverProfileInput {
   readonly simulate: (steps: readonly SwitchedStep[], fixed: readonly SwitchedStep[], settings: SwitchingSettings) => BankRun;
 }
 
-/** The bank's result and its run, or null when no bank is asked for or it has no steps. */
-export function bankOverProfile(input: BankOverProfileInput, options: Pick<ProfileStudyOptions, 'bank' | 'targetPf' | 'designedBank'>): { bank: ProfileBankResult; run: BankRun } | null {
+/** A bank simulated over the profile, or why none was: the sizing from the profile came to no steps. */
+export type BankOverProfile = { readonly bank: ProfileBankResult; readonly run: BankRun } | { readonly notSized: NoBankSized };
+
+/** Why a need of 0 kvar at the cover percentile: no current, no lagging reactive power, or the target held often enough. */
+function whyNoSteps(f: IntervalFigures, targetPf: number, coverShare: number): NoBankSized {
+  const tan = Math.tan(Math.acos(targetPf));
+  let current = false;
+  let lagging = false;
+  let importing = 0;
+  let below = 0;
+  for (let i = 0; i < f.count; i++) {
+    let w = 0;
+    let q = 0;
+    for (let k = 0; k < f.phaseW.length; k++) {
+      if (f.lineA[k]![i]! > 0) current = true;
+      if (f.phaseVar[k]![i]! > 0) lagging = true;
+      w += f.phaseW[k]![i]!;
+      q += f.phaseVar[k]![i]!;
+    }
+    if (w <= 0) continue;
+    importing++;
+    if (q > w * tan) below++;
+  }
+  const reason: NoBankSized['reason'] = !current ? 'no-current' : !lagging ? 'no-lagging-reactive-power' : 'target-held';
+  return { reason, words: noBankWords(reason, targetPf, importing ? below / importing : 0, coverShare) };
+}
+
+/** The bank's result and its run; why no bank was sized (steps sized from the profile, none needed); null when no bank is asked for. */
+export function bankOverProfile(input: BankOverProfileInput, options: Pick<ProfileStudyOptions, 'bank' | 'targetPf' | 'designedBank'>): BankOverProfile | null {
   const { board, before, label } = input;
   const n = before.count;
   const designed = options.designedBank;
@@ -54,6 +81,7 @@ export function bankOverProfile(input: BankOverProfileInput, options: Pick<Profi
       };
   let steps: readonly SwitchedStep[];
   let needKvar: Record<string, number> | null = null;
+  let targetOutOfReach: ProfileBankResult['targetOutOfReach'] = null;
   const source: ProfileBankResult['source'] = designed ? 'correction-study' : b?.steps ? 'board-file-steps' : 'profile';
   if (designed) steps = designed.steps;
   else if (b?.steps) steps = b.steps.map((s) => ({ kvar: s.kvar, channel: s.phase ?? 'ABC' }));
@@ -63,9 +91,17 @@ export function bankOverProfile(input: BankOverProfileInput, options: Pick<Profi
       coverShare: settings.coverShare!,
       stepCount: b?.stepCount ?? PROFILE_DEFAULTS.stepCount,
       perPhase: b?.perPhase ?? false,
+      responseShare: settings.responseShare,
     });
     steps = sizing.steps;
     needKvar = { ...sizing.needKvar };
+    const short = Object.entries(sizing.reaches).find(([, closes]) => !closes);
+    if (short) {
+      const [channel] = short;
+      const step = steps.find((x) => x.channel === channel)!.kvar;
+      targetOutOfReach = { channel, needKvar: needKvar[channel]!, words: targetOutOfReachWords(stepPlaceWords(board, channel as StepChannel), needKvar[channel]!, step, settings.responseShare, settings.targetPf) };
+    }
+    if (!steps.length) return { notSized: whyNoSteps(input.meterBefore ?? before, settings.targetPf, settings.coverShare!) };
   }
   const fixed = designed?.fixed ?? [];
   if (steps.length || fixed.length) {
@@ -85,7 +121,13 @@ export function bankOverProfile(input: BankOverProfileInput, options: Pick<Profi
       for (let k = 0; k < board.phases.length; k++) rise[i] = Math.max(rise[i]!, run.figures.phaseV[k]![i]! - before.phaseV[k]![i]!);
     const worstRise = maximumOf(rise);
     const { upperPf, ...rest } = settings;
-    const belowTarget = upperPf !== undefined && steps.length && steps.every((x) => x.channel === 'ABC') ? hoursBelowTarget(run.meterFigures ?? run.figures, settings.targetPf, upperPf, Math.min(...steps.map((x) => x.kvar)), input.intervalMs) : null;
+    const totalKvar = steps.reduce((s, x) => s + x.kvar, 0);
+    const belowTarget = hoursBelowTarget(
+      run.meterFigures ?? run.figures,
+      { targetPf: settings.targetPf, upperPf: upperPf ?? null, responseShare: settings.responseShare },
+      { smallestKvar: steps.length ? Math.min(...steps.map((x) => x.kvar)) : 0, totalKvar, connectedKvar: steps.length ? run.connectedKvar : null },
+      input.intervalMs,
+    );
     const bank: ProfileBankResult = {
       source,
       design: designed?.design ?? null,
@@ -93,7 +135,7 @@ export function bankOverProfile(input: BankOverProfileInput, options: Pick<Profi
       needKvar,
       placeWords: Object.fromEntries([...new Set([...steps.map((x) => x.channel), ...Object.keys(needKvar ?? {})])].map((c) => [c, stepPlaceWords(board, c as StepChannel)])),
       steps: stepRuns,
-      totalKvar: steps.reduce((s, x) => s + x.kvar, 0),
+      totalKvar,
       fixedKvar: fixed.reduce((s, x) => s + x.kvar, 0),
       notSimulated: designed && (designed.notSimulated.length || designed.fixedNotSimulatedKvar) ? { outputs: designed.notSimulated, fixedKvar: designed.fixedNotSimulatedKvar } : null,
       settings: {
@@ -115,6 +157,7 @@ export function bankOverProfile(input: BankOverProfileInput, options: Pick<Profi
       voltageRisePercent: (100 * worstRise.value) / judgedNominalOf(board).ln,
       voltageRiseAt: label(worstRise.index),
       belowTarget,
+      targetOutOfReach,
       after: input.summarise(run.figures),
     };
     return { bank, run };

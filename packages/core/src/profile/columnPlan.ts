@@ -71,6 +71,8 @@ export interface TargetResolver {
   readonly loads: BoardLoad[];
   /** The target a name stands for, or null after pushing an issue at `at`. */
   resolve(name: string, at: string, issues: InputIssue[]): { kind: ColumnTarget['kind']; loads: number[] } | null;
+  /** The board a load (index into `loads`) is on, where there are several. @defaultValue one board */
+  boardOf?(load: number): number;
 }
 
 /** A constant-power phase-to-neutral load standing for a metered phase total. */
@@ -185,15 +187,58 @@ export function planTargets(header: readonly string[], ownLoads: number, resolve
     }
     targets.push({ name, kind: t.kind, loads: t.loads, columns: t.columns });
   }
+  const undriven = loads
+    .slice(0, ownLoads)
+    .flatMap((_, i) => (!drivenBy.has(i) && !inService.has(i) ? [i] : []));
+  issues.push(...countedTwiceIssues(targets, loads, resolver, options.undrivenAtRating ? undriven : []));
   if (issues.length) throw new InputError(issues, 'the interval data header is not valid');
   return {
     timeHeader: header[0]!.trim(),
     dataHeaders: header.slice(1).map((h) => h.trim()),
     targets,
-    undriven: loads.slice(0, ownLoads).filter((_, i) => !drivenBy.has(i) && !inService.has(i)).map((l) => l.name),
+    undriven: undriven.map((i) => loads[i]!.name),
     undrivenAtRating: options.undrivenAtRating ?? false,
     ...(inService.size ? { inService: [...inService] } : {}),
   };
+}
+
+/**
+ * A metered phase total is everything that phase draws on its board: a column for a load on that phase (or a
+ * load kept at its rating, `atRating`) would count that load twice, once inside the total and once on its own.
+ * The issues naming both, or none.
+ */
+function countedTwiceIssues(targets: readonly ColumnTarget[], loads: readonly BoardLoad[], resolver: TargetResolver, atRating: readonly number[]): InputIssue[] {
+  const boardOf = (l: number) => resolver.boardOf?.(l) ?? 0;
+  const issues: InputIssue[] = [];
+  for (const metered of targets.filter((t) => t.kind === 'phase')) {
+    const m = metered.loads[0]!;
+    const phase = loads[m]!.branches[0]!.from;
+    const onPhase = (l: number) => boardOf(l) === boardOf(m) && loads[l]!.branches.some((b) => b.from === phase || b.to === phase);
+    for (const other of targets) {
+      if (other.kind === 'phase') continue;
+      const shared = other.loads.filter(onPhase).map((l) => `"${loads[l]!.name}" (${loads[l]!.connection})`);
+      if (shared.length)
+        issues.push(
+          inputIssue(
+            'counted_twice',
+            `header ("${metered.name}" and "${other.name}")`,
+            `a metered phase total or columns for the loads on that phase, not both: "${metered.name}" is everything the phase draws on its board, and "${other.name}" drives ${shared.join(', ')} on it too, so it would be counted twice; leave out one of the two columns`,
+            `${metered.name}, ${other.name}`,
+          ),
+        );
+    }
+    const kept = atRating.filter(onPhase).map((l) => `"${loads[l]!.name}" (${loads[l]!.connection})`);
+    if (kept.length)
+      issues.push(
+        inputIssue(
+          'counted_twice',
+          `header ("${metered.name}")`,
+          `a metered phase total without loads on that phase kept at rating: --unlisted-at-rating holds ${kept.join(', ')} on at its rating, and "${metered.name}" already counts everything the phase draws on its board; leave out --unlisted-at-rating (loads without a column then count as off), or give those loads columns and leave out the phase total`,
+          metered.name,
+        ),
+      );
+  }
+  return issues;
 }
 
 const isPhaseToNeutral = (load: BoardLoad) => load.branches.length === 1 && load.branches[0]!.to === 'N';

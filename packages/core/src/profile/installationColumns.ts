@@ -126,6 +126,7 @@ function installationResolver(installation: Installation, groups: Readonly<Recor
   };
   return {
     loads,
+    boardOf: (load) => boards[load]!,
     resolve(name, at, issues) {
       const metered = meteredAt(name);
       if (metered) {

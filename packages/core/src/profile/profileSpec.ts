@@ -15,7 +15,7 @@ const powerFactor = z.number().gt(0).max(1);
 export const scenarioSchema = z
   .strictObject({
     name: nameSchema('scenario name'),
-    hours: positive.max(8784).optional().describe('hours per year the board spends in this state'),
+    hours: positive.max(8784).optional().describe('hours per year the board spends in this state; all the scenarios together at most 8784 h (a leap year)'),
     weight: positive.optional().describe('relative share of the year (scaled so all weights fill 8760 h); give hours or weight'),
     loads: z
       .record(nameReferenceSchema('a load or group name'), nonNegative.max(10))

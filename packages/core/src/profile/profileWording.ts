@@ -4,7 +4,11 @@ import { labellerOf } from '../board/conventions/phaseNames.js';
 import type { CapacitorDischarge } from '../correction/capacitorDischarge.js';
 import type { StepChannel } from './bankController.js';
 import { PROFILE_DEFAULTS } from './profileDefaults.js';
-import { checkNumberArgument } from '../_internal/argumentChecks.js';
+import { checkNumberArgument, checkObjectArgument } from '../_internal/argumentChecks.js';
+import type { SequenceReport } from './checkIntervalSequence.js';
+import type { ProfileSummary } from './summariseFigures.js';
+import type { ProfileBankResult } from './studyProfile.js';
+import { groupDigits } from '../_internal/groupDigits.js';
 
 /** Cautions printed with every profile result. */
 export const PROFILE_CAUTIONS: readonly string[] = [
@@ -59,4 +63,98 @@ export function stepPlaceWords(board: Board, channel: StepChannel): string {
     return board.phases.length === 1 ? 'line to neutral' : `line-to-neutral on ${board.phases.map(label).join(' and ')}`;
   }
   return threePhase ? `on phase ${label(channel)}` : `line-to-neutral on ${label(channel)}`;
+}
+
+/** Why `profile --bank` sized and simulated no bank: the reason a caller can test, and the words it prints. */
+export interface NoBankSized {
+  readonly reason: 'no-current' | 'no-lagging-reactive-power' | 'target-held';
+  readonly words: string;
+}
+
+/**
+ * The words for a bank sized from the profile that came to no steps. `belowShare` is the share of importing
+ * intervals below the target (0–1); `coverShare` the share the sizing holds at the target.
+ */
+export function noBankWords(reason: NoBankSized['reason'], targetPf: number, belowShare: number, coverShare: number): string {
+  if (reason === 'no-current') return 'no bank sized or simulated: no current flows in any interval of the data (every load off), so there is nothing for a bank to correct';
+  if (reason === 'no-lagging-reactive-power')
+    return 'no bank sized or simulated: the loads draw no lagging reactive power in any interval (resistive, or leading), so capacitors would only carry the power factor towards leading';
+  const pct = (x: number) => `${Math.round(x * 1000) / 10} %`;
+  return `no bank sized or simulated: the power factor is below the target ${targetPf} in ${pct(belowShare)} of the importing intervals, within the ${pct(1 - coverShare)} the sizing leaves uncovered (profile.bank.coverShare ${coverShare})`;
+}
+
+/**
+ * The sized steps cannot reach the target at the need: the last step's share of it is under the response
+ * threshold. A lower threshold does not help, since the step that then closes over-corrects by more than the
+ * threshold and switches straight back out (hunting).
+ */
+export function targetOutOfReachWords(place: string, needKvar: number, stepKvar: number, responseShare: number, targetPf: number): string {
+  const k = (x: number, places: number) => `${x.toFixed(places)} kvar`;
+  return `the ${place} steps of ${k(stepKvar, 1)} cannot hold PF ${targetPf} at the ${k(needKvar, 1)} need they were sized for: the controller closes a step only while the need left exceeds ${responseShare} × ${k(stepKvar, 1)} = ${k(responseShare * stepKvar, 2)}, and at no step size tried does the last step's share of the need pass that (a lower threshold would close it only to switch it straight back out); expect the power factor below the target at that load — a need this small is usually met by a fixed capacitor, or left (common practice, no source)`;
+}
+
+/**
+ * What the interval data's sequence showed, a sentence each: gaps and what was done with them, repeated times,
+ * wall-clock times in the hour clocks go back, steps that are not whole intervals. `trivar profile` prints
+ * these and the report's load-over-time section states them, in these words.
+ * @param fillOption name the option that fills gaps (`trivar profile --fill-gaps`) where the caller has it
+ */
+export function intervalSequenceWords(s: SequenceReport, fillOption = true): string[] {
+  checkObjectArgument(s, 's', 'the interval sequence of a profile result (result.sequence)', ['gaps', 'fill']);
+  checkObjectArgument(s.gaps, 's.gaps', 'the gaps of an interval sequence { count, missingIntervals, missingHours }', ['count']);
+  const count = (x: number) => groupDigits(Math.round(x) || 0);
+  const hours = (h: number) => (h === 0 ? '0' : h < 10 ? h.toFixed(2) : h.toFixed(1));
+  const words = [
+    s.gaps.count
+      ? `${s.gaps.count} gap${s.gaps.count === 1 ? '' : 's'}, ${count(s.gaps.missingIntervals)} intervals (${hours(s.gaps.missingHours)} h) missing: ${
+          s.fill === 'none' ? `left out of every figure${fillOption ? ' (--fill-gaps hold or linear fills them)' : ''}` : `filled by ${s.fill === 'hold' ? 'holding the last reading' : 'linear interpolation'} (${count(s.filledIntervals)} intervals made)`
+        }`
+      : 'no gaps',
+  ];
+  if (s.duplicates.count)
+    words.push(`${s.duplicates.count} repeated time${s.duplicates.count === 1 ? '' : 's'}: the first reading kept (row${s.duplicates.rows.length === 1 ? '' : 's'} ${s.duplicates.rows.join(', ')}${s.duplicates.count > s.duplicates.rows.length ? ', ...' : ''})`);
+  if (s.ambiguousTimes) words.push(`${s.ambiguousTimes} wall-clock times fall in the repeated hour when clocks go back: placed in row order`);
+  if (s.irregularSteps) words.push(s.irregularSteps === 1 ? 'one step between rows is not a whole number of intervals' : `${s.irregularSteps} steps between rows are not a whole number of intervals`);
+  return words;
+}
+
+/**
+ * A neutral above its limit in any interval, in words (as `trivar solve` warns of one solve): the hours, the
+ * peak and when, the limit and where it comes from. `fromStudy`: the limit is the file's profile.limits.neutralA,
+ * not the neutral's rating. `board` names the board on an installation.
+ */
+export function neutralOverLimitWarnings(summary: ProfileSummary, fromStudy: boolean, board?: string): string[] {
+  const n = summary.conductors.find((c) => c.conductor === 'N');
+  if (!n || n.ratingA === null || n.hoursAboveLimit === null || n.hoursAboveLimit <= 0) return [];
+  const limit = fromStudy ? `the study's ${n.ratingA} A neutral limit (profile.limits.neutralA)` : `its ${n.ratingA} A rating`;
+  const hours = n.hoursAboveLimit < 10 ? n.hoursAboveLimit.toFixed(2) : n.hoursAboveLimit.toFixed(1);
+  return [
+    `${board ? `${board}: ` : ''}neutral current above ${limit} for ${hours} h of the ${summary.hours < 10 ? summary.hours.toFixed(2) : summary.hours.toFixed(1)} h, peak ${n.maxA.toFixed(1)} A at ${n.maxAt}${fromStudy ? '' : ': a neutral carrying more than its rating overheats; check its size against local wiring rules'}`,
+  ];
+}
+
+/**
+ * The hours the board stays below the target with the bank, and why (ProfileBankResult.belowTarget), in one
+ * sentence; null where there are none. `trivar profile` prints it and the report states it.
+ */
+export function belowTargetWords(b: ProfileBankResult): string | null {
+  checkObjectArgument(b, 'b', 'the bank of a profile result (result.bank)', ['belowTarget', 'settings']);
+  checkObjectArgument(b.belowTarget, 'b.belowTarget', 'the hours below the target { hours, ... }', ['hours']);
+  const t = b.belowTarget;
+  if (t.hours <= 0) return null;
+  const set = b.settings;
+  const hours = (h: number) => (h < 10 ? h.toFixed(2) : h.toFixed(1));
+  // Three decimals where a band edge needs them (0.995 must not read as 0.99).
+  const pf = (x: number) => x.toFixed(Math.round(x * 100) === x * 100 ? 2 : 3);
+  const smallest = Math.min(...b.steps.map((s) => s.kvar));
+  const other = t.hours - t.allStepsInHours - t.underResponseHours - t.stepTooCoarseHours;
+  const why = [
+    ...(t.allStepsInHours > 0 ? [`${hours(t.allStepsInHours)} h with every step in (the bank too small for that load)`] : []),
+    ...(t.underResponseHours > 0
+      ? [`${hours(t.underResponseHours)} h with the shortfall under the switching threshold (${set.responseShare.toFixed(2)} × ${smallest.toFixed(1)} kvar = ${(set.responseShare * smallest).toFixed(2)} kvar: no step closes for it)`]
+      : []),
+    ...(t.stepTooCoarseHours > 0 ? [`${hours(t.stepTooCoarseHours)} h with no step small enough to stay under ${pf(set.upperPf!)} (steps coarse for this band at that load)`] : []),
+    ...(other > 1e-9 ? [`${hours(other)} h with the controller on its way (switching delay, a step waiting out its discharge${b.steps.some((s) => s.channel !== 'ABC') ? ', or a phase corrected on its own' : ''})`] : []),
+  ];
+  return `board PF below ${pf(set.targetPf)} with the bank: ${hours(t.hours)} h of import — ${why.join('; ')}`;
 }

@@ -28,7 +28,7 @@ import { switchBank } from './simulateBank.js';
 import { recordInterval, type IntervalFigures } from './solveBatch.js';
 import { profileClock, resolveLimits, type ProfileBankResult, type ProfileStudyOptions } from './studyProfile.js';
 import { summariseFigures, type ProfileSummary, type ResolvedLimits, type SummaryContext } from './summariseFigures.js';
-import { PROFILE_CAUTIONS } from './profileWording.js';
+import { neutralOverLimitWarnings, PROFILE_CAUTIONS, type NoBankSized } from './profileWording.js';
 import { clearRoundOff, conductorFloorA } from './intervalRoundOff.js';
 import { listedBanksInService, type ListedBankInService } from '../analysis/banksInServiceWords.js';
 
@@ -99,6 +99,10 @@ export interface InstallationProfileResult {
    * where the controller measured when that is not the bank's board (its sizing and `belowTarget` are read there).
    */
   readonly bank: (ProfileBankResult & { readonly board: string; readonly meter: BankMeter | null }) | null;
+  /** Why --bank sized and simulated no bank on the board named (the need at the cover percentile is 0); null otherwise. */
+  readonly bankNotSized: (NoBankSized & { readonly board: string }) | null;
+  /** What the data shows that needs acting on, board by board: a neutral above its limit in any interval (hours, peak). */
+  readonly warnings: readonly string[];
   readonly cautions: readonly string[];
 }
 
@@ -177,7 +181,7 @@ export function studyInstallationProfile(input: InstallationProfileInput, option
   let meterAfter: IntervalFigures | null = null;
 
   let after: IntervalFigures[] | null = null;
-  const withBank = bankOverProfile(
+  const outcome = bankOverProfile(
     {
       board: boards[bankAt]!,
       before: before[bankAt]!,
@@ -213,7 +217,15 @@ export function studyInstallationProfile(input: InstallationProfileInput, option
     },
     options,
   );
+  const withBank = outcome && 'bank' in outcome ? outcome : null;
   const afterFigures = withBank ? after : null;
+  const boardResults = boards.map((board, b): InstallationProfileBoard => ({
+    board: board.name,
+    fedFrom: b === 0 ? null : names[installation.subBoards[b - 1]!.fedFrom]!,
+    limits: contexts[b]!.limits,
+    before: summariseFigures(before[b]!, contexts[b]!),
+    after: afterFigures ? summariseFigures((afterFigures as IntervalFigures[])[b]!, contexts[b]!) : null,
+  }));
   const result: InstallationProfileResult = {
     installation: installation.name,
     phaseNames: conventionsOf(installation.main).phaseNames,
@@ -224,13 +236,7 @@ export function studyInstallationProfile(input: InstallationProfileInput, option
     undriven: input.undriven ?? null,
     banksInService: listedBanksInService(installation),
     replacedBank: input.replacedBank ?? null,
-    boards: boards.map((board, b) => ({
-      board: board.name,
-      fedFrom: b === 0 ? null : names[installation.subBoards[b - 1]!.fedFrom]!,
-      limits: contexts[b]!.limits,
-      before: summariseFigures(before[b]!, contexts[b]!),
-      after: afterFigures ? summariseFigures((afterFigures as IntervalFigures[])[b]!, contexts[b]!) : null,
-    })),
+    boards: boardResults,
     bank: withBank
       ? {
           board: names[bankAt]!,
@@ -238,6 +244,9 @@ export function studyInstallationProfile(input: InstallationProfileInput, option
           meter: meter && meterBefore && meterAfter && meterContext ? { point: meter.point, before: summariseFigures(meterBefore, meterContext), after: summariseFigures(meterAfter, meterContext) } : null,
         }
       : null,
+    bankNotSized: outcome && 'notSized' in outcome ? { board: names[bankAt]!, ...outcome.notSized } : null,
+    // profile.limits.neutralA is the main board's limit; a sub-board's neutral is judged against its rating.
+    warnings: boardResults.flatMap((r, b) => neutralOverLimitWarnings(r.before, b === 0 && input.profile?.limits?.neutralA !== undefined, r.board)),
     cautions: PROFILE_CAUTIONS,
   };
   const meterFigures = withBank && meter && meterBefore && meterAfter ? { point: meter.point, before: meterBefore, after: meterAfter as IntervalFigures } : null;

@@ -19,7 +19,7 @@ import { bankOverProfile } from './bankOverProfile.js';
 import { allocateFigures, solveBatch, type BatchSolveOptions, type IntervalFigures } from './solveBatch.js';
 import { summariseFigures, type ProfileSummary, type ResolvedLimits, type SummaryContext } from './summariseFigures.js';
 import { createZoneClock, monthKeyOf } from './zoneClock.js';
-import { PROFILE_CAUTIONS } from './profileWording.js';
+import { neutralOverLimitWarnings, PROFILE_CAUTIONS, type NoBankSized } from './profileWording.js';
 import { assertProfileInput } from '../board/modelGuards.js';
 import { judgedNominalOf } from '../board/nominalVoltages.js';
 
@@ -111,11 +111,19 @@ export interface ProfileBankResult {
   readonly voltageRisePercent: number;
   readonly voltageRiseAt: string;
   /**
-   * Board-total PF below the target while importing (where the controller measures), hours; and of those, the hours in which even
-   * the smallest step would have carried the PF past the band's upper limit (steps too coarse for
-   * the band at that load). Null for a bank with single-phase steps or without an upper limit.
+   * Board-total PF below the target while importing (where the controller measures), hours, and why: every
+   * step already in (the bank too small for that load); the shortfall under the controller's response threshold
+   * (responseShare × the smallest step: no step closes for it); with an upper limit, no step small enough to stay
+   * under it (steps too coarse for the band at that load). Hours in none of these are the controller on its way
+   * (the switching delay, a step waiting out its discharge) or, with single-phase steps, a phase corrected on its
+   * own. All 0 where the PF is at or above the target in every importing interval.
    */
-  readonly belowTarget: { readonly hours: number; readonly stepTooCoarseHours: number } | null;
+  readonly belowTarget: BelowTarget;
+  /**
+   * Where the sizing found no step size whose steps the controller closes up to the target at the sized need
+   * (the last step's need under the response threshold): the channel, the need, kvar; otherwise null.
+   */
+  readonly targetOutOfReach: { readonly channel: string; readonly needKvar: number; readonly words: string } | null;
   readonly after: ProfileSummary;
 }
 
@@ -131,6 +139,10 @@ export interface ProfileResult {
   readonly limits: ResolvedLimits;
   readonly before: ProfileSummary;
   readonly bank: ProfileBankResult | null;
+  /** Why --bank sized and simulated no bank (the need at the cover percentile is 0); null otherwise. */
+  readonly bankNotSized: NoBankSized | null;
+  /** What the data shows that needs acting on: a neutral above its limit in any interval (hours, peak). */
+  readonly warnings: readonly string[];
   readonly cautions: readonly string[];
 }
 
@@ -170,11 +182,30 @@ export function resolveLimits(board: Board, spec: ProfileSpec | undefined): Reso
   };
 }
 
-/** See ProfileBankResult.belowTarget: board totals, import only; a step's kvar taken at nominal voltage. */
-export function hoursBelowTarget(f: IntervalFigures, targetPf: number, upperPf: number, smallestKvar: number, intervalMs: number): { hours: number; stepTooCoarseHours: number } {
-  const tanTarget = Math.tan(Math.acos(targetPf));
-  const tanUpper = Math.tan(Math.acos(Math.min(1, upperPf)));
+export interface BelowTarget {
+  readonly hours: number;
+  readonly allStepsInHours: number;
+  readonly underResponseHours: number;
+  readonly stepTooCoarseHours: number;
+}
+
+/**
+ * See ProfileBankResult.belowTarget: board totals, import only; a step's kvar taken at nominal voltage.
+ * `connectedKvar` is the switched kvar in each interval, `totalKvar` all the steps together; `upperPf` null
+ * for a controller without an upper limit.
+ */
+export function hoursBelowTarget(
+  f: IntervalFigures,
+  settings: { readonly targetPf: number; readonly upperPf: number | null; readonly responseShare: number },
+  bank: { readonly smallestKvar: number; readonly totalKvar: number; readonly connectedKvar: Float64Array | null },
+  intervalMs: number,
+): BelowTarget {
+  const tanTarget = Math.tan(Math.acos(settings.targetPf));
+  const tanUpper = settings.upperPf === null ? null : Math.tan(Math.acos(Math.min(1, settings.upperPf)));
+  const threshold = settings.responseShare * bank.smallestKvar * 1000;
   let below = 0;
+  let allIn = 0;
+  let under = 0;
   let coarse = 0;
   for (let i = 0; i < f.count; i++) {
     let w = 0;
@@ -185,10 +216,12 @@ export function hoursBelowTarget(f: IntervalFigures, targetPf: number, upperPf: 
     }
     if (w <= 0 || q <= w * tanTarget) continue;
     below++;
-    if (q - smallestKvar * 1000 < w * tanUpper) coarse++;
+    if (bank.connectedKvar && bank.connectedKvar[i]! >= bank.totalKvar - 1e-9) allIn++;
+    else if (tanUpper !== null && q - bank.smallestKvar * 1000 < w * tanUpper) coarse++;
+    else if (q - w * tanTarget <= threshold) under++;
   }
   const h = intervalMs / 3_600_000;
-  return { hours: below * h, stepTooCoarseHours: coarse * h };
+  return { hours: below * h, allStepsInHours: allIn * h, underResponseHours: under * h, stepTooCoarseHours: coarse * h };
 }
 
 /** Wall-clock times of the intervals in a zone: local times, calendar months, and the labels reports show. */
@@ -261,9 +294,10 @@ export function studyProfile(input: ProfileStudyInput, options: ProfileStudyOpti
     },
     options,
   );
-  const bank = withBank?.bank ?? null;
-  const after = withBank?.run.figures ?? null;
-  const connectedKvar = withBank?.run.connectedKvar ?? null;
+  const simulated = withBank && 'bank' in withBank ? withBank : null;
+  const bank = simulated?.bank ?? null;
+  const after = simulated?.run.figures ?? null;
+  const connectedKvar = simulated?.run.connectedKvar ?? null;
   const result: ProfileResult = {
     board: board.name,
     phaseNames: conventionsOf(board).phaseNames,
@@ -275,6 +309,8 @@ export function studyProfile(input: ProfileStudyInput, options: ProfileStudyOpti
     limits,
     before: beforeSummary,
     bank,
+    bankNotSized: withBank && 'notSized' in withBank ? withBank.notSized : null,
+    warnings: neutralOverLimitWarnings(beforeSummary, input.profile?.limits?.neutralA !== undefined),
     cautions: PROFILE_CAUTIONS,
   };
   return { result, utcMs: input.utcMs, before, after, connectedKvar, label, nominalLineToNeutralV: judgedNominalOf(board).ln };

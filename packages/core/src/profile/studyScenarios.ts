@@ -59,6 +59,8 @@ export interface ScenarioResult extends BoardScenarios {
 }
 
 const YEAR_HOURS = 8760;
+/** The longest year, 366 × 24 h: the most hours a year's scenarios can share. */
+const LEAP_YEAR_HOURS = 8784;
 
 /**
  * Each scenario's hours (weights share out 8760 h); the issues of scenarios that give neither or mix
@@ -68,6 +70,17 @@ export function scenarioHours(scenarios: readonly ScenarioSpec[], issues: InputI
   const withHours = scenarios.filter((s) => s.hours !== undefined).length;
   if (withHours !== 0 && withHours !== scenarios.length)
     issues.push(inputIssue('mixed', 'profile.scenarios', 'every scenario with hours, or every scenario with a weight'));
+  // The scenarios share out one year: the year-energy figures would otherwise count more hours than a year has.
+  const totalHours = scenarios.reduce((a, s) => a + (s.hours ?? 0), 0);
+  if (totalHours > LEAP_YEAR_HOURS)
+    issues.push(
+      inputIssue(
+        'too_big',
+        'profile.scenarios',
+        `scenario hours that share out one year, ${LEAP_YEAR_HOURS} h at most (a leap year; ${YEAR_HOURS} h in other years): they sum to ${Math.round(totalHours * 100) / 100} h (${scenarios.map((s) => `${s.name} ${s.hours ?? 0} h`).join(' + ')}); scale them down, or give each a weight instead of hours to share out ${YEAR_HOURS} h`,
+        `${Math.round(totalHours * 100) / 100} h in all`,
+      ),
+    );
   scenarios.forEach((s, k) => {
     if (s.hours === undefined && s.weight === undefined) issues.push(inputIssue('missing', `profile.scenarios[${k}].hours`, 'hours or weight'));
   });

@@ -15,7 +15,7 @@ import { percentBesideEdges } from '../../board/conventions/voltageBesideBand.js
 const percentBeside = (percent: number, limits: Pick<ResolvedLimits, 'voltageLowPercent' | 'voltageHighPercent'>) =>
   percentBesideEdges(percent, limits.voltageLowPercent, limits.voltageHighPercent);
 import { billingPowerFactorText } from '../../profile/billingPowerFactor.js';
-import { contactorLifeWords } from '../../profile/profileWording.js';
+import { belowTargetWords, contactorLifeWords, intervalSequenceWords } from '../../profile/profileWording.js';
 import type { ReportBlock, ReportSection } from './reportDocument.js';
 import { labellerOf, type PhaseNaming } from '../../board/conventions/phaseNames.js';
 import { argumentIssueError, checkListArgument, checkObjectArgument } from '../../_internal/argumentChecks.js';
@@ -38,6 +38,8 @@ const intervalWords = (p: Pick<ProfileResult, 'intervals' | 'timeZone'>) =>
 interface BoardProfileView {
   readonly intervals: ProfileResult['intervals'];
   readonly timeZone: string;
+  /** What the data's sequence showed (gaps, repeated times), where this board's blocks state it; null: stated elsewhere. */
+  readonly sequence: ProfileResult['sequence'];
   readonly limits: ResolvedLimits;
   readonly before: ProfileSummary;
   /** The conductors' caption: where the currents are measured. */
@@ -48,6 +50,9 @@ interface BoardProfileView {
 /** The board region's unbalance index, capitalised, with its definition where its name does not say it. */
 const unbalanceWords = (u: VoltageUnbalanceLimit) => `${u.name[0]!.toUpperCase()}${u.name.slice(1)}${u.definition ? ` (${u.definition}; ${u.source})` : ` (${u.source})`}`;
 
+/** The data's gaps and repeated times, as `trivar profile` words them. */
+const sequenceFacts = (s: ProfileResult['sequence']): [string, string][] => (s ? [['Interval data', intervalSequenceWords(s, false).join('; ')]] : []);
+
 function boardBlocks(p: BoardProfileView, charts: readonly ProfileChart[], naming: PhaseNaming, figurePrefix: string): ReportBlock[] {
   const s = p.before;
   const label = labellerOf(naming);
@@ -56,6 +61,7 @@ function boardBlocks(p: BoardProfileView, charts: readonly ProfileChart[], namin
       kind: 'facts',
       items: [
         ['Intervals', intervalWords(p)],
+        ...sequenceFacts(p.sequence),
         ['Energy imported / exported', `${fixed(s.energy.kWhImport, 0)} kWh / ${fixed(s.energy.kWhExport, 0)} kWh`],
         ['Reactive energy lagging / leading', `${fixed(s.energy.kvarhLagging, 0)} kvarh / ${fixed(s.energy.kvarhLeading, 0)} kvarh`],
         ['Billing power factor', billingPowerFactorText(s.energy.billingPf)],
@@ -101,6 +107,8 @@ function bankBlock(b: ProfileBankResult, where = ''): ReportBlock {
       ['Busiest step’s contactor and its typical life', contactorLifeWords(b.yearsToContactorLife, 'it') ?? '—'],
       ['Reconnection after a step goes off', `${b.settings.reconnectSeconds} s (discharge time ${b.settings.dischargeSeconds} s, ${b.settings.dischargeRule})`],
       ['Switching within an interval', b.withinInterval.words],
+      ...(belowTargetWords(b) ? ([['Hours below the target with the bank', belowTargetWords(b)!]] as [string, string][]) : []),
+      ...(b.targetOutOfReach ? ([['Target out of reach of the sized steps', b.targetOutOfReach.words]] as [string, string][]) : []),
     ],
   };
 }
@@ -114,6 +122,7 @@ export function profileSection(p: ProfileResult, charts: readonly ProfileChart[]
   const naming = namingGiven ?? p.phaseNames;
   const blocks = boardBlocks({ ...p, currentsCaption: 'Conductor currents over the period' }, charts, naming, 'profile-');
   if (p.bank) blocks.push(bankBlock(p.bank));
+  if (p.warnings.length) blocks.push({ kind: 'list', tone: 'warning', items: p.warnings });
   if (p.bank?.warnings.length) blocks.push({ kind: 'list', tone: 'warning', items: p.bank.warnings });
   if (p.cautions.length) blocks.push({ kind: 'list', tone: 'caution', items: p.cautions });
   return { id: 'profile', title: 'Load over time', blocks };
@@ -142,6 +151,7 @@ export function installationProfileSections(
       kind: 'facts',
       items: [
         ['Intervals', intervalWords(r)],
+        ...sequenceFacts(r.sequence),
         ['Boards', `${r.boards.length}, every board and feeder solved at once in each interval`],
         ...(r.banksInService.length ? [['Capacitor banks in service', `in every interval, ${BANKS_IN_SERVICE_BASIS}: ${r.banksInService.map((b) => bankInServiceWords(b)).join('; ')}`] as [string, string]] : []),
       ],
@@ -190,11 +200,12 @@ export function installationProfileSections(
         ],
       });
   }
+  if (r.warnings.length) overview.push({ kind: 'list', tone: 'warning', items: r.warnings });
   if (r.cautions.length) overview.push({ kind: 'list', tone: 'caution', items: r.cautions });
   const boards = r.boards.map((b): ReportSection => {
     const id = `profile-${ids.get(b.board)!}`;
     const where = b.fedFrom === null ? 'the supply to the main board' : `the feeder from ${b.fedFrom}`;
-    const blocks = boardBlocks({ ...r, limits: b.limits, before: b.before, currentsCaption: `Currents in ${where} over the period` }, charts.boards.get(b.board) ?? [], naming, `${id}-`);
+    const blocks = boardBlocks({ ...r, sequence: null, limits: b.limits, before: b.before, currentsCaption: `Currents in ${where} over the period` }, charts.boards.get(b.board) ?? [], naming, `${id}-`);
     if (b.after && r.bank) blocks.push({ kind: 'facts', items: [[`Billing power factor with the bank on ${r.bank.board}`, billingPowerFactorText(b.after.energy.billingPf)]] });
     return { id, title: `Load over time — ${b.board}`, blocks };
   });
