@@ -69,6 +69,29 @@ export function percentBesideBand(limits: BandLimits, percent: number, usualDeci
   return percentBesideEdges(percent, 100 - limits.underPercent, 100 + limits.overPercent, usualDecimals);
 }
 
+/**
+ * The common case, answered without the search below: a good reading whose volts and percentage both lie
+ * more than two units of their last printed decimal from every edge, where rounding cannot carry either
+ * figure onto or across an edge (a band end in V is itself rounded by at most half a unit). A report
+ * prints a board's every circuit through here, so this path checks inline and builds nothing else;
+ * null sends anything else (a figure near an edge, a bad argument) through the full path and its checks.
+ */
+function clearOfEdges(limits: BandLimits, reading: { readonly volts: number; readonly percent: number }, usual: number): VoltageShown | null {
+  const under = limits?.underPercent;
+  const over = limits?.overPercent;
+  const volts = reading?.volts;
+  const percent = reading?.percent;
+  if (!(typeof under === 'number' && under >= 0 && under <= 100 && typeof over === 'number' && over >= 0 && Number.isFinite(over))) return null;
+  if (!(typeof volts === 'number' && volts > 0 && Number.isFinite(volts) && typeof percent === 'number' && percent > 0 && Number.isFinite(percent))) return null;
+  if (!(usual === 1 || usual === 0 || usual === 2)) return null;
+  const unit = 2 * 10 ** -usual;
+  const fromEdge = Math.min(Math.abs(percent - (100 - under)), Math.abs(percent - (100 + over)));
+  // The same distance in volts: percent of the nominal the reading was taken against (volts / percent).
+  if (!(fromEdge > unit && (fromEdge * volts) / percent > unit)) return null;
+  const side = sideOf(percent, 100 - under, 100 + over);
+  return { side, volts: fixedText(volts, usual), voltsDecimals: usual, percent: fixedText(percent, usual), percentDecimals: usual };
+}
+
 /** A voltage beside its band, in volts and % of nominal, each with the decimals that show its side. */
 export interface VoltageShown {
   readonly side: BandSide;
@@ -86,6 +109,8 @@ export interface VoltageShown {
  * @throws {InputError} naming the argument that is not a finite figure in range
  */
 export function voltageBesideBand(limits: BandLimits, reading: { readonly volts: number; readonly percent: number }, usualDecimals = 1): VoltageShown {
+  const clear = clearOfEdges(limits, reading, usualDecimals);
+  if (clear !== null) return clear;
   checkNumberArgument(limits?.underPercent, 'limits.underPercent', 'a finite percentage below nominal, from 0 to 100', (x) => x >= 0 && x <= 100);
   checkNumberArgument(limits?.overPercent, 'limits.overPercent', 'a finite percentage above nominal, 0 or more', (x) => x >= 0);
   checkNumberArgument(reading?.volts, 'reading.volts', 'a voltage magnitude in V, finite and 0 or more', (x) => x >= 0);
