@@ -53,7 +53,7 @@ describe('a source entered per phase', () => {
   it('solve describes the source by the EMFs entered, not the nominal, in the header and the power balance', () => {
     const out = runTrivar(['solve', file]).stdout;
     const header = out.split('\n\n')[0]!.replace(/\n +/g, ' ');
-    expect(header).toContain('source as entered per phase, not the nominal: A 241 V ∠0°, B 226 V ∠-119°, C 233 V ∠120.5° (open-circuit EMF to the star point)');
+    expect(header).toContain('source as entered per phase, not the nominal: A 241 V ∠0°, B 226 V ∠-119°, C 233 V ∠120.5° (open-circuit EMF of each phase)');
     expect(header).toContain('limits are judged at the nominal 230/400 V');
     expect(header).not.toContain('source holds 230.9 V');
     const balance = out.slice(out.indexOf('Power balance')).replace(/\n +/g, ' ');

@@ -65,7 +65,7 @@ describe('a three-core feeder (no neutral conductor)', () => {
       bad();
     } catch (e) {
       const issue = (e as InputError).issues.find((i) => i.path === 'boards[1].feeder.neutral')!;
-      expect(issue.message).toContain('expected starPoint: floating on "Saw motor" on Workshop if its star point is not tied to a neutral (a motor\'s is not)');
+      expect(issue.message).toContain('expected starPoint: floating on "Saw motor" on Workshop if its star (wye) point is not tied to a neutral (a motor\'s is not)');
       expect(issue.message).not.toContain('r: 0, x: 0');
     }
   });

@@ -196,9 +196,9 @@ const listed = (names: readonly string[]) => `${names.slice(0, 3).join(', ')}${n
  * fix is usually `starPoint: floating`, not a conductor.
  */
 export function missingNeutralWords({ lineToNeutral, star }: NeutralUsers): string {
-  const floating = `starPoint: floating on ${listed(star)} if ${star.length > 1 ? 'their star points are' : 'its star point is'} not tied to a neutral (a motor's is not)`;
+  const floating = `starPoint: floating on ${listed(star)} if ${star.length > 1 ? 'their star (wye) points are' : 'its star (wye) point is'} not tied to a neutral (a motor's is not)`;
   if (lineToNeutral.length === 0)
-    return `${floating}: a star-connected load is taken as tied unless so written, and this feeder has no neutral; where the star point is tied, the neutral conductor's size with the length (e.g. neutral: { mm2: … })`;
+    return `${floating}: a star-connected (wye) load is taken as tied unless so written, and this feeder has no neutral; where the star point is tied, the neutral conductor's size with the length (e.g. neutral: { mm2: … })`;
   const rest = star.length ? `; and ${floating}` : '';
   return `the neutral conductor, which ${listed(lineToNeutral)} return through: its size with the length (e.g. neutral: { mm2: … }), or r: 0, x: 0 for a neutral of no impedance${rest}`;
 }

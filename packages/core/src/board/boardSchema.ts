@@ -151,7 +151,7 @@ export const supplySchema = z.strictObject({
   bank: z
     .strictObject({ A: windingSchema.optional(), B: windingSchema.optional(), C: windingSchema.optional() })
     .optional()
-    .describe('a bank of single-phase transformers with star-connected secondaries, one unit per phase (units may differ)'),
+    .describe('a bank of single-phase transformers with star-connected (wye) secondaries, one unit per phase (units may differ)'),
   openDelta: z
     .strictObject({ 'A-B': windingSchema.optional(), 'B-C': windingSchema.optional(), 'C-A': windingSchema.optional() })
     .optional()
@@ -188,7 +188,7 @@ export const loadSchema = z.strictObject({
   starPoint: z
     .enum(STAR_POINTS)
     .optional()
-    .describe('for ABC-star loads: star point tied to the neutral (default on 4-wire boards) or floating'),
+    .describe('for ABC-star loads: star (wye) point tied to the neutral (default on 4-wire boards) or floating'),
   kW: within(PHYSICAL_RANGES.loadKW).optional().describe('active power at nominal voltage, kW (negative = generation)'),
   kvar: within(PHYSICAL_RANGES.loadKvar).optional().describe('reactive power at nominal voltage, kvar (positive = lagging)'),
   kVA: within(PHYSICAL_RANGES.loadKVA).optional().describe('apparent power at nominal voltage, kVA'),

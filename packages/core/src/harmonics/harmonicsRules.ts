@@ -24,7 +24,7 @@ export function ruleHarmonicFields(board: BoardWithHarmonicLoads, naming: PhaseN
     const floating = load.connection === 'ABC-star' && (load.starPoint === 'floating' || !systemHasNeutral(board.supply.system));
     const fixedImpedance = load.ohms !== undefined || load.model === 'constant-impedance' || load.zip?.z === 1;
     if (floating && fixedImpedance)
-      issues.push(inputIssue('not_applicable', `${path}.spectrum`, `a spectrum on ${label('ABC-delta')} loads or stars tied to the neutral (describe a floating-star non-linear load as ${label('ABC-delta')})`, 'a floating star'));
+      issues.push(inputIssue('not_applicable', `${path}.spectrum`, `a spectrum on ${label('ABC-delta')} loads or stars tied to the neutral (describe a floating-star (wye) non-linear load as ${label('ABC-delta')})`, 'a floating star'));
   });
   return issues;
 }

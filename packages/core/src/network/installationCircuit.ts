@@ -53,7 +53,7 @@ function terminalName(boardName: string | null, board: { loads: Board['loads'] }
   if (terminal === 'N') return boardName === null ? 'the board neutral bar' : `the neutral bar of ${boardName}`;
   if (terminal.startsWith('star:')) {
     const load = board.loads[Number(terminal.slice(5))];
-    return `the star point of load ${quoteText(load?.name ?? terminal)}${boardName === null ? '' : ` on ${boardName}`}`;
+    return `the star (wye) point of load ${quoteText(load?.name ?? terminal)}${boardName === null ? '' : ` on ${boardName}`}`;
   }
   return `phase ${terminal} at ${at}`;
 }
@@ -109,7 +109,7 @@ export function buildInstallationCircuit(installation: Installation): Installati
   });
   let star = REFERENCE;
   if (main.sourceStarImpedance && !isZero(main.sourceStarImpedance) && !main.openDeltaCorner) {
-    star = addNode('the source star point');
+    star = addNode('the source star (wye) point');
     addElement(star, REFERENCE, main.sourceStarImpedance);
   }
   const corner = main.openDeltaCorner ? main.phases.indexOf(main.openDeltaCorner) : -1;

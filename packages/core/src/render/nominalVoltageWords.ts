@@ -41,7 +41,7 @@ export function sourceHeldLine(board: BoardResult['board'], label: PhaseLabel = 
   const s = board.sourceNominal;
   if (board.sourceEmf) {
     const rated = s ? `loads are rated at ${heldWords(s)} and limits` : 'loads are rated and limits';
-    return `source as entered per phase, not the nominal: ${enteredEmfWords(board.sourceEmf, label)} (open-circuit EMF to the star point); ${rated} are judged at the nominal ${nominalPairWords(board)}`;
+    return `source as entered per phase, not the nominal: ${enteredEmfWords(board.sourceEmf, label)} (open-circuit EMF of each phase); ${rated} are judged at the nominal ${nominalPairWords(board)}`;
   }
   return s ? `source holds ${heldWords(s)} as given, and loads are rated there; limits are judged at the nominal ${nominalPairWords(board)}` : null;
 }
