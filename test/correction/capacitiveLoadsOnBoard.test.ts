@@ -6,7 +6,7 @@
  * reactors) instead of "not estimated", and its summary lists only reactors that exist.
  */
 import { describe, expect, it } from 'vitest';
-import { correctBoard, normaliseBoard, parseBoard, solveBoardModel, WARNING_THRESHOLDS, type BoardSpec, type CompensatorSizing } from '@trivar/core';
+import { compareCorrections, correctBoard, normaliseBoard, parseBoard, solveBoardModel, WARNING_THRESHOLDS, type BoardSpec, type CompensatorSizing } from '@trivar/core';
 import { renderCorrectionReport } from '../../packages/cli/src/format/correctionReport.js';
 
 const supply = { system: 'three-phase-4wire', voltage: { lineToLine: 400 }, frequencyHz: 50, transformer: { kVA: 315, impedancePercent: 4.5, xOverR: 5 } } as const;
@@ -101,4 +101,16 @@ describe('a board led by its own fixed capacitor bank', () => {
     expect(report.summary).not.toContain('reactor on A-B');
     expect(report.summary).toContain('a 4.63 kvar reactor on B-C');
   });
+
+  it('the recommendation says to deal with the board\'s own capacitors first, quoting the leading lines', () => {
+    const c = compareCorrections(board, {});
+    const warning = solveBoardModel(board).warnings.find((x) => x.code === 'line-leading')!;
+    expect(c.why).toContain('note: lines A at PF 0.855, B at PF 0.715, C at PF 0.715 lead');
+    expect(c.why).toContain('switching or reducing those capacitors (an automatic bank that follows the load) is the usual remedy');
+    expect(c.why).toContain(warning.message.split(';')[0]!.slice(0, 60));
+    // A board without capacitive loads gets no such note.
+    const plain = normaliseBoard(parseBoard({ ...dyeWorks, loads: dyeWorks.loads.filter((l) => l.name !== 'Fixed bank left on') }));
+    expect(compareCorrections(plain, {}).why).not.toContain('usual remedy');
+  });
 });
+

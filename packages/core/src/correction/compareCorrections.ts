@@ -192,7 +192,9 @@ export function recommendArrangement(outcomes: readonly ArrangementOutcome[], am
     return changes.length ? [comparisonWording.balanceWorse(names[o.arrangement], o === chosen, changes)] : [];
   });
   const overloaded = [chosen, ...others].flatMap((o) => (overloads(o) ? [comparisonWording.overloads(names[o.arrangement], o === chosen, o.report.verification.overloadsCaused.map((x) => x.message))] : []));
-  const notes = [...overloaded, ...worse];
+  // A board its own capacitors make lead is told to deal with them first (the warning solve gives it).
+  const ownLead = chosen.report.verification.before.warnings.find((w) => w.code === 'line-leading');
+  const notes = [...(ownLead ? [comparisonWording.ownCapacitorsLead(ownLead.message)] : []), ...overloaded, ...worse];
   const whyAll = notes.length ? `${why}; ${notes.join('; ')}` : why;
   return { recommended: chosen.arrangement, meetsTarget, why: whyAll, rule: comparisonWording.rule };
 }

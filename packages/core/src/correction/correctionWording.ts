@@ -453,6 +453,12 @@ export const comparisonWording = {
   /** What a compared arrangement overloads, said beside the recommendation. */
   overloads: (name: string, recommended: boolean, messages: readonly string[]) =>
     `${recommended ? 'note: no arrangement meets the target without an overload; with the recommended' : 'with the'} ${name} in, ${messages.join('; ')}`,
+  /**
+   * Said first where the board leads because of its own capacitive loads (the `line-leading` warning): the
+   * usual remedy is to switch or reduce them, and any equipment sized here only works against them.
+   */
+  ownCapacitorsLead: (warning: string) =>
+    `note: ${warning.replace(/; switch or reduce the capacitors to follow the load$/, '')}; switching or reducing those capacitors (an automatic bank that follows the load) is the usual remedy, and equipment sized here would only work against them`,
   /** What a compared arrangement makes notably worse, said beside the recommendation. */
   balanceWorse: (name: string, recommended: boolean, changes: readonly { code: string; before: number; after: number }[]) =>
     `${recommended ? 'note: the recommended' : 'the'} ${name} ${changes
