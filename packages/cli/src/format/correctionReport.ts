@@ -1,5 +1,5 @@
 /** CorrectionReport → the human-readable report of `trivar correct` (fits 100 columns). */
-import { exemptLeadingLines, lossesPlaceWords, arrangementDescriptions, arrangementNames, BUILD_VERDICT_WORDS, CORRECTION_DEFAULTS, labellerOf, meteringPointWords, reactorChanges, smallBranchWords, sparedBranchesWords, type BankSelection, type BankStep, type BeforeAfter, type BranchSizing, type CompensatorSizing, type ControllerSettings, type CorrectionReport, type CorrectionVerification, type FewerBranchesBuild, type PhaseId, type RoundingBesideReactors, type PhaseLabeller, signedPfText, linePfText, exportingLinesNote, starWordOf, type StarWord } from '@trivar/core';
+import { exemptLeadingLines, lossesPlaceWords, arrangementDescriptions, arrangementNames, BUILD_VERDICT_WORDS, CORRECTION_DEFAULTS, labellerOf, meteringPointWords, reactorChanges, smallBranchWords, sparedBranchesWords, type BankSelection, type BankStep, type BeforeAfter, type BranchSizing, type CompensatorSizing, type ControllerSettings, type CorrectionReport, type CorrectionVerification, type FewerBranchesBuild, type PhaseId, type RoundingBesideReactors, type PhaseLabeller, signedPfText, linePfText, exportingLinesNote, isExportCurrentA, starWordOf, type StarWord } from '@trivar/core';
 import { fixed, renderTable, section } from './textTable.js';
 import { headerLines } from './solveReport.js';
 import { wrapText } from './wrapText.js';
@@ -213,12 +213,10 @@ export function lineTable(v: Pick<CorrectionVerification, 'lines'>, label: Phase
       arrow(l.reactiveCurrentA, 1),
       `${linePfText(l.pf.before, l.sense.before, l.activeCurrentA.before, NO_CURRENT)} → ${linePfText(l.pf.after, l.sense.after, l.activeCurrentA.after, NO_CURRENT)}`,
     ]),
-  ) + exportNote(v.lines.filter((l) => exports(l.activeCurrentA.before) || exports(l.activeCurrentA.after)).map((l) => label(l.phase)));
+  ) + exportNote(v.lines.filter((l) => isExportCurrentA(l.activeCurrentA.before) || isExportCurrentA(l.activeCurrentA.after)).map((l) => label(l.phase)));
 }
 
 const NO_CURRENT = 'no current';
-/** As the tables print the active part (0.1 A): below zero, the line carries power back to the supply. */
-const exports = (activeA: number) => fixed(activeA, 1).startsWith('-');
 const exportNote = (lines: readonly string[]): string => {
   const note = exportingLinesNote(lines);
   return note === null ? '' : `\n${wrapText(`(${note}.)`, '  ', '   ')}`;
@@ -393,7 +391,7 @@ function lineTableNow(v: Pick<CorrectionVerification, 'lines'>, label: PhaseLabe
       { header: 'PF', align: 'left' },
     ],
     v.lines.map((l) => [label(l.phase), fixed(l.currentA.before, 1), fixed(l.activeCurrentA.before, 1), fixed(l.reactiveCurrentA.before, 1), linePfText(l.pf.before, l.sense.before, l.activeCurrentA.before, NO_CURRENT)]),
-  ) + exportNote(v.lines.filter((l) => exports(l.activeCurrentA.before)).map((l) => label(l.phase)));
+  ) + exportNote(v.lines.filter((l) => isExportCurrentA(l.activeCurrentA.before)).map((l) => label(l.phase)));
 }
 
 /**

@@ -54,6 +54,12 @@ export function assumedPfNote(assumedKW: readonly number[]): string {
   return `*: pf not given in the file, taken as 1${why}.`;
 }
 
+/** True when a line current's active part, as the tables print it (0.1 A), is below zero: the line carries power back. */
+export function isExportCurrentA(activeCurrentA: number): boolean {
+  if (!Number.isFinite(activeCurrentA)) checkNumberArgument(activeCurrentA, 'activeCurrentA', 'the active part of the line current in A, a finite number');
+  return fixed(activeCurrentA, 1).startsWith('-');
+}
+
 /**
  * A line's PF in a correction table, beside its active part as printed (0.1 A): "0.951 lag", or
  * "0.572 export" where that active part is below zero, the same words `powerFactorText` gives the line
@@ -66,7 +72,7 @@ export function linePfText(pf: number | null, sense: PowerFactorSense, activeCur
   }
   if (pf === null) return none;
   const shown = fixed(Math.abs(pf), 3);
-  if (fixed(activeCurrentA, 1).startsWith('-')) return `${shown} export`;
+  if (isExportCurrentA(activeCurrentA)) return `${shown} export`;
   return sense === 'lagging' ? `${shown} lag` : sense === 'leading' ? `${shown} lead` : shown;
 }
 

@@ -9,7 +9,7 @@ import type { HarmonicCorrectionReport } from '../../harmonics/correctWithHarmon
 import { correctionComparisonBlocks } from './correctionComparisonBlocks.js';
 import { arrangementDescriptions, arrangementNames, meteringPointWords } from '../../correction/correctionWording.js';
 import { fixed } from '../svgText.js';
-import { exportingLinesNote, linePfText } from '../powerFactorText.js';
+import { exportingLinesNote, isExportCurrentA, linePfText } from '../powerFactorText.js';
 import { renderPhasorDiagram } from '../renderPhasorDiagram.js';
 import { renderCurrentTriangles } from '../renderCurrentTriangles.js';
 import type { ReportBlock, ReportSection } from './reportDocument.js';
@@ -133,13 +133,11 @@ function nothingToAddSection(report: CorrectionReport, comparison: CorrectionCom
       fixed(l.reactiveCurrentA.before, 1),
       linePfText(l.pf.before, l.sense.before, l.activeCurrentA.before, '—'),
     ]),
-    note: linesNote(v.lines.filter((l) => exports(l.activeCurrentA.before)).map((l) => label(l.phase))),
+    note: linesNote(v.lines.filter((l) => isExportCurrentA(l.activeCurrentA.before)).map((l) => label(l.phase))),
   });
   return { id: 'correction', title: 'Correction recommendation', blocks };
 }
 
-/** As the tables print the active part (0.1 A): below zero, the line carries power back to the supply. */
-const exports = (activeA: number) => fixed(activeA, 1).startsWith('-');
 
 /** The lines tables' note, with what "export" means where a line carries power back. */
 function linesNote(exporting: readonly string[]): string {
@@ -200,7 +198,7 @@ export function correctionSection(report: CorrectionReport, comparison: Correcti
       linePfText(l.pf.before, l.sense.before, l.activeCurrentA.before, '—'),
       linePfText(l.pf.after, l.sense.after, l.activeCurrentA.after, '—'),
     ]),
-    note: linesNote(v.lines.filter((l) => exports(l.activeCurrentA.before) || exports(l.activeCurrentA.after)).map((l) => label(l.phase))),
+    note: linesNote(v.lines.filter((l) => isExportCurrentA(l.activeCurrentA.before) || isExportCurrentA(l.activeCurrentA.after)).map((l) => label(l.phase))),
   });
   blocks.push({ kind: 'figure', name: 'correction-phasors', caption: 'Phasors before (dashed) and after (solid) the correction', svg: renderPhasorDiagram(v.before, { after: v.after }) });
   blocks.push({ kind: 'figure', name: 'correction-triangles', caption: 'How the equipment changes each line current', svg: renderCurrentTriangles(v.before, v.after) });
