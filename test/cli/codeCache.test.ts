@@ -4,7 +4,7 @@
  * or a folder others can write is not used, and the output is the same with or without it.
  */
 import { spawnSync } from 'node:child_process';
-import { chmodSync, existsSync, mkdirSync, mkdtempSync, readdirSync, readFileSync, rmSync, statSync, writeFileSync } from 'node:fs';
+import { chmodSync, cpSync, existsSync, mkdirSync, mkdtempSync, readdirSync, readFileSync, rmSync, statSync, utimesSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
@@ -34,7 +34,7 @@ describe('code cache of the CLI bundle', () => {
     const first = trivar(SOLVE);
     expect(first).toEqual(uncached);
     const [file] = cacheFiles();
-    expect(cacheFiles()).toEqual([expect.stringMatching(/^solve-[0-9a-f]{16}\.v8$/)]);
+    expect(cacheFiles()).toEqual([expect.stringMatching(/^solve-[0-9a-f]{8}-[0-9a-f]{16}\.v8$/)]);
     expect(statSync(dir).mode & 0o777).toBe(0o700);
     expect(statSync(join(dir, file!)).mode & 0o777).toBe(0o600);
     const written = statSync(join(dir, file!)).mtimeMs;
@@ -74,9 +74,29 @@ describe('code cache of the CLI bundle', () => {
     expect(cacheFiles().map((f) => f.split('-')[0]).sort()).toEqual(['none', 'solve']);
     expect(cacheFileName('a', 'solve')).not.toBe(cacheFileName('b', 'solve'));
     expect(cacheFileName('a', 'solve')).not.toBe(cacheFileName('a', 'correct'));
+    expect(cacheFileName('a', 'solve', '/one/dist/trivar-bundle.js')).not.toBe(cacheFileName('a', 'solve', '/two/dist/trivar-bundle.js'));
     expect(cacheCommand(['correct', 'x.yaml'])).toBe('correct');
     expect(cacheCommand(['--version'])).toBe('none');
     expect(cacheCommand(['../../x'])).toBe('none');
+  });
+  it('two copies of trivar keep a cache each; a rebuilt copy replaces only its own', () => {
+    // A global install beside a project's own, or two checkouts: one name per command had each evict the other's cache.
+    const copy = join(dir, '..', 'copy');
+    cpSync(`${ROOT}packages/cli/dist`, join(copy, 'dist'), { recursive: true });
+    const runCopy = () => spawnSync(process.execPath, [join(copy, 'dist', 'trivar.js'), ...SOLVE], { cwd: ROOT, encoding: 'utf8', env: { ...process.env, TRIVAR_NO_CODE_CACHE: '', TRIVAR_CODE_CACHE_DIR: dir } });
+    expect(trivar(SOLVE).code).toBe(0);
+    const [own] = cacheFiles();
+    expect(runCopy().status).toBe(0);
+    expect(cacheFiles()).toHaveLength(2);
+    expect(cacheFiles()).toContain(own);
+    const [copyCache] = cacheFiles().filter((f) => f !== own);
+    // The copy rebuilt (its bundle's modification time changes the build part of the name): its old cache goes, the other copy's stays.
+    const bundle = join(copy, 'dist', 'trivar-bundle.js');
+    utimesSync(bundle, new Date(), new Date(Date.now() + 5000));
+    expect(runCopy().status).toBe(0);
+    expect(cacheFiles()).toHaveLength(2);
+    expect(cacheFiles()).toContain(own);
+    expect(cacheFiles()).not.toContain(copyCache);
   });
   it('lives in the per-user cache folder, never beside the input', () => {
     const home = () => '/home/ana';

@@ -40,17 +40,23 @@ function checksum(data: Uint8Array | string): number {
 const hex8 = (n: number): string => n.toString(16).padStart(8, '0');
 
 /**
- * The cache file of one command: named for the bundle (the build's hash of its text, and its size and
- * modification time, so a rebuilt or edited bundle never reads a cache made for another) and for the
- * Node build (V8 itself checks only its version, its flags and the source's length). One cache per
- * command: each holds the functions that command ran. The name's 64 bits are the checksums of the
+ * The cache file of one command of one installed copy: `<command>-<install>-<build>.v8`. The build part
+ * is named for the bundle (the build's hash of its text, and its size and modification time, so a
+ * rebuilt or edited bundle never reads a cache made for another) and for the Node build (V8 itself
+ * checks only its version, its flags and the source's length); its 64 bits are the checksums of the
  * name's input read forwards and backwards: two inputs of one length whose CRCs agree (CRC is linear)
- * almost never agree backwards too, so builds are told apart as well as by a 64-bit hash.
+ * almost never agree backwards too, so builds are told apart as well as by a 64-bit hash. The install
+ * part is the checksum of the bundle's path: two copies of trivar on one machine (a global one and a
+ * project's own, two checkouts) each keep their cache, where one name per command had each run of the
+ * one evict the other's and start cold. One cache per command: each holds the functions that command ran.
  */
-export function cacheFileName(bundle: string, command: string): string {
+export function cacheFileName(bundle: string, command: string, install = ''): string {
   const input = `${bundle}\0${process.version}\0${process.arch}\0${command}`;
-  return `${command}-${hex8(checksum(input))}${hex8(checksum([...input].reverse().join('')))}.v8`;
+  return `${command}-${hex8(checksum(install))}-${hex8(checksum(input))}${hex8(checksum([...input].reverse().join('')))}.v8`;
 }
+
+/** The caches `file` replaces: the same command of the same installed copy, of another build. */
+const supersededBy = (file: string, other: string): boolean => other !== file && other.endsWith('.v8') && other.startsWith(file.slice(0, file.lastIndexOf('-') + 1));
 
 /** The command a run's cache is kept under: the first argument when it looks like a command name. */
 export function cacheCommand(argv: readonly string[]): string {
@@ -96,17 +102,17 @@ export function readCache(dir: string, file: string): Buffer | undefined {
 
 /**
  * Writes the cache whole or not at all (a temporary file renamed over the old one, so a run never
- * reads half a file) and removes the command's caches of other builds. Any failure is silent: the
+ * reads half a file) and removes the caches it supersedes (supersededBy). Any failure is silent: the
  * cache only saves time.
  */
-export function writeCache(dir: string, file: string, data: Buffer, command: string): void {
+export function writeCache(dir: string, file: string, data: Buffer): void {
   try {
     mkdirSync(dir, { recursive: true, mode: 0o700 });
     if (!ownFolder(dir)) return;
     const temporary = join(dir, `.${file}.${process.pid}.tmp`);
     writeFileSync(temporary, Buffer.concat([digestOf(data), data]), { mode: 0o600 });
     renameSync(temporary, join(dir, file));
-    for (const old of readdirSync(dir)) if (old !== file && old.startsWith(`${command}-`) && old.endsWith('.v8')) rmSync(join(dir, old), { force: true });
+    for (const old of readdirSync(dir)) if (supersededBy(file, old)) rmSync(join(dir, old), { force: true });
   } catch {
     // No cache this time.
   }

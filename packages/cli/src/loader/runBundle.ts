@@ -41,7 +41,7 @@ const bytes = readFileSync(bundlePath);
 const command = cacheCommand(process.argv.slice(2));
 const dir = cacheDirectory();
 const stat = dir === null ? null : statSync(bundlePath);
-const file = stat === null ? '' : cacheFileName(`${TRIVAR_BUNDLE_HASH}:${stat.size}:${stat.mtimeMs}`, command);
+const file = stat === null ? '' : cacheFileName(`${TRIVAR_BUNDLE_HASH}:${stat.size}:${stat.mtimeMs}`, command, bundlePath);
 const cachedData = dir === null ? undefined : readCache(dir, file);
 // esbuild writes ASCII only (non-ASCII characters as escapes), so latin1 is the exact and quickest decoding.
 const script = new Script(bytes.toString('latin1'), { filename: bundlePath, ...(cachedData ? { cachedData } : {}) });
@@ -49,7 +49,7 @@ const run = script.runInThisContext() as BundleFunction;
 if (dir !== null && (cachedData === undefined || script.cachedDataRejected === true))
   process.once('exit', (code) => {
     // 0: done; 5: `trivar correct` ran the study and the target is out of reach (exitCodes.ts, not imported: it loads core).
-    if (code === 0 || code === 5) writeCache(dir, file, script.createCachedData(), command);
+    if (code === 0 || code === 5) writeCache(dir, file, script.createCachedData());
   });
 const module = { exports: {} };
 run(module.exports, createRequire(bundlePath), module, bundlePath, dirname(bundlePath), pathToFileURL(bundlePath).href);
