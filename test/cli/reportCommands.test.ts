@@ -1,6 +1,6 @@
 /** `trivar report` and `trivar diagram` run as a user would (built binary). */
-import { execFileSync } from 'node:child_process';
-import { copyFileSync, existsSync, linkSync, mkdtempSync, readFileSync, readdirSync, writeFileSync } from 'node:fs';
+import { execFileSync, spawnSync } from 'node:child_process';
+import { closeSync, copyFileSync, existsSync, linkSync, openSync, mkdtempSync, readFileSync, readdirSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { dirname, join } from 'node:path';
 import { describe, expect, it } from 'vitest';
@@ -308,6 +308,40 @@ describe('trivar report', () => {
     writeFileSync(clash, before);
     expect(runTrivar(['report', clash, '--format', 'md', '-o', join(dir, 'b.md')]).code).toBe(2);
     expect(readFileSync(clash, 'utf8')).toBe(before);
+  });
+
+  it('never overwrites a board the shell redirected to standard input (`- < board.yaml`)', () => {
+    const dir = scratch();
+    const board = join(dir, 'board.yaml');
+    copyFileSync(join(ROOT, 'examples/corner-bakery.yaml'), board);
+    const before = readFileSync(board, 'utf8');
+    for (const args of [
+      ['report', '-', '-o', board],
+      ['diagram', '-', '-o', board],
+      ['rebalance', '-', '--write', board],
+    ]) {
+      const stdin = openSync(board, 'r');
+      try {
+        const r = spawnSync(process.execPath, [join(ROOT, 'packages/cli/bin/trivar.js'), ...args], { cwd: dir, stdio: [stdin, 'pipe', 'pipe'], encoding: 'utf8' });
+        expect(r.status, args.join(' ')).toBe(2);
+        expect(r.stderr, args.join(' ')).toMatch(/standard input/);
+      } finally {
+        closeSync(stdin);
+      }
+      expect(readFileSync(board, 'utf8')).toBe(before);
+    }
+    // Another file on standard input, or a pipe: the output is written as usual.
+    const other = join(dir, 'other.yaml');
+    copyFileSync(board, other);
+    const stdin = openSync(other, 'r');
+    try {
+      const r = spawnSync(process.execPath, [join(ROOT, 'packages/cli/bin/trivar.js'), 'diagram', '-', '-o', join(dir, 'out.svg')], { cwd: dir, stdio: [stdin, 'pipe', 'pipe'], encoding: 'utf8' });
+      expect(r.status).toBe(0);
+    } finally {
+      closeSync(stdin);
+    }
+    expect(readFileSync(join(dir, 'out.svg'), 'utf8')).toMatch(/^<svg/);
+    expect(runTrivar(['diagram', '-', '-o', join(dir, 'piped.svg')], before).code).toBe(0);
   });
 
   it('never overwrites its input through a hard link, nor one output with another, nor crashes on a bad output place', () => {

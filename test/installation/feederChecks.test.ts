@@ -45,6 +45,9 @@ describe('conductors of one feeder given far-apart lengths', () => {
     expect(warningsOf(long, 'Workshop', 'feeder-lengths-unalike')[0]!.message).toContain('(lines 200 m, neutral 20 m)');
     const perPhase = solveInstallation(yard({ lengthFt: 100, line: { A: { awg: '2' }, B: { awg: '2' }, C: { awg: '2', lengthFt: 150 } }, neutral: { awg: '2' } }));
     expect(warningsOf(perPhase, 'Workshop', 'feeder-lengths-unalike')[0]!.message).toContain('(A 100 ft, B 100 ft, C 150 ft, neutral 100 ft)');
+    // A metric feeder with one conductor in feet: each length as written (all in feet read "A 66 ft" for the file's 20 m).
+    const mixed = solveInstallation(yard({ lengthM: 20, line: { A: { mm2: 25 }, B: { mm2: 25, lengthFt: 300 }, C: { mm2: 25 } }, neutral: { mm2: 25 } }));
+    expect(warningsOf(mixed, 'Workshop', 'feeder-lengths-unalike')[0]!.message).toContain('(A 20 m, B 300 ft, C 20 m, neutral 20 m)');
   });
 
   it('lengths alike, or within 1.2 × / 1 m of each other (terminations), are not remarked on', () => {

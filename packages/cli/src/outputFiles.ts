@@ -1,5 +1,5 @@
 /** Writing the files a command produces, never over one of its inputs. */
-import { existsSync, mkdirSync, realpathSync, statSync, writeFileSync } from 'node:fs';
+import { existsSync, fstatSync, mkdirSync, realpathSync, statSync, writeFileSync } from 'node:fs';
 import { dirname, resolve } from 'node:path';
 import { EXIT, UsageError } from './exitCodes.js';
 import { fileErrorWords } from './fileErrorWords.js';
@@ -12,8 +12,34 @@ function canonical(path: string): string {
   return existsSync(dir) ? resolve(realpathSync(dir), abs.slice(dir.length + 1)) : abs;
 }
 
-/** True when two paths name the same file: the same path once links are resolved, or one file under two names (a hard link). */
+/**
+ * The file standard input reads from when the shell redirected one to it (`trivar … - < board.yaml`):
+ * its device and inode, or null for a pipe, a terminal or no standard input at all.
+ */
+function standardInputFile(): { readonly dev: number; readonly ino: number } | null {
+  try {
+    const s = fstatSync(0);
+    return s.isFile() ? { dev: s.dev, ino: s.ino } : null;
+  } catch {
+    return null;
+  }
+}
+
+/**
+ * True when two paths name the same file: the same path once links are resolved, or one file under two
+ * names (a hard link). "-" is standard input: the same file as `a` when the shell redirected `a` to it.
+ */
 export function sameFile(a: string, b: string): boolean {
+  if (b === '-') {
+    const input = standardInputFile();
+    if (input === null) return false;
+    try {
+      const s = statSync(a);
+      return s.dev === input.dev && s.ino === input.ino;
+    } catch {
+      return false; // the output does not exist yet
+    }
+  }
   if (canonical(a) === canonical(b)) return true;
   try {
     const sa = statSync(a);
@@ -25,13 +51,15 @@ export function sameFile(a: string, b: string): boolean {
 }
 
 /**
- * Throws if any output would replace an input file ("-" inputs are standard input and never clash), or
- * two outputs are one file (the second would silently replace the first).
+ * Throws if any output would replace an input file (a "-" input is standard input, which clashes only
+ * when the shell redirected that very file to it), or two outputs are one file (the second would
+ * silently replace the first).
  */
 export function assertNotInput(outputs: readonly string[], inputs: readonly string[]): void {
-  const ins = inputs.filter((i) => i !== '-');
   outputs.forEach((out, k) => {
-    if (ins.some((i) => sameFile(out, i))) throw new UsageError(`refusing to write "${out}": it is an input file of this command; choose another output name`);
+    const input = inputs.find((i) => sameFile(out, i));
+    if (input !== undefined)
+      throw new UsageError(`refusing to write "${out}": it is an input file of this command${input === '-' ? ' (read from standard input)' : ''}; choose another output name`);
     const earlier = outputs.slice(0, k).find((o) => sameFile(out, o));
     if (earlier !== undefined) throw new UsageError(`refusing to write "${out}": "${earlier}" is written by this command too; give each output its own file`);
   });

@@ -71,8 +71,8 @@ async function installationIntervalConditions(spec: InstallationSpec, installati
 export async function runRebalance(file: string, options: RebalanceCommandOptions, io: CliIo): Promise<RebalanceReport> {
   if (options.write !== undefined && options.data !== undefined && sameFile(options.write, options.data))
     throw new UsageError(`--write ${options.write}: that is the interval data being read; write the rebalanced board to another file`);
-  if (options.write !== undefined && file !== '-' && sameFile(options.write, file))
-    throw new UsageError(`--write ${options.write}: that is the board file being read; write the rebalanced board to another file`);
+  if (options.write !== undefined && sameFile(options.write, file))
+    throw new UsageError(`--write ${options.write}: that is the board file being read${file === '-' ? ' (from standard input)' : ''}; write the rebalanced board to another file`);
   const text = await io.readSource(file);
   const input = readBoardText(text);
   const search: RebalanceOptions = {

@@ -11,7 +11,7 @@ import type { Region } from '../board/conventions/region.js';
 import { unbalanceFigure, VOLTAGE_UNBALANCE_LIMITS } from '../board/conventions/unbalanceLimits.js';
 import { circuitNumberMismatches, overlappingCircuitPositions, sharedCircuitNumbers } from './panelNumbering.js';
 import { unitWords } from './sourceUnitsWords.js';
-import { lengthFigure, type FeederRouteLengths } from '../board/feederModel.js';
+import { lengthFigure, type FeederRouteLengths, type LengthUnit } from '../board/feederModel.js';
 import { quoteText } from '../errors.js';
 
 export const WARNING_THRESHOLDS = {
@@ -343,13 +343,14 @@ function unequalRouteLengths(lengths: FeederRouteLengths, lineLabels: readonly s
   const shortest = Math.min(...given);
   const longest = Math.max(...given);
   if (given.length < 2 || longest <= shortest * ROUTE_LENGTH_SPREAD.ratio || longest - shortest <= ROUTE_LENGTH_SPREAD.metres) return null;
-  const shown = (m: number) => (lengths.unit === 'ft' ? `${lengthFigure(m / METRES_PER_FOOT, 0)} ft` : `${lengthFigure(m, 1)} m`);
+  const shown = (m: number, unit: LengthUnit) => (unit === 'ft' ? `${lengthFigure(m / METRES_PER_FOOT, 0)} ft` : `${lengthFigure(m, 1)} m`);
   const lines = lengths.lines.filter((m): m is number => m !== null);
+  const unit0 = lengths.lineUnits[0] ?? 'm';
   const lineWords =
-    lines.length === lengths.lines.length && lines.every((m) => m === lines[0])
-      ? [`${lines.length > 1 ? 'lines' : 'line'} ${shown(lines[0]!)}`]
-      : lengths.lines.flatMap((m, k) => (m === null ? [] : [`${lineLabels[k]} ${shown(m)}`]));
-  const words = [...lineWords, ...(lengths.neutral === null ? [] : [`neutral ${shown(lengths.neutral)}`])].join(', ');
+    lines.length === lengths.lines.length && lines.every((m) => m === lines[0]) && lengths.lineUnits.every((u) => u === unit0)
+      ? [`${lines.length > 1 ? 'lines' : 'line'} ${shown(lines[0]!, unit0)}`]
+      : lengths.lines.flatMap((m, k) => (m === null ? [] : [`${lineLabels[k]} ${shown(m, lengths.lineUnits[k] ?? 'm')}`]));
+  const words = [...lineWords, ...(lengths.neutral === null ? [] : [`neutral ${shown(lengths.neutral, lengths.neutralUnit)}`])].join(', ');
   return {
     code: 'feeder-lengths-unalike',
     message: `the feeder's conductors are given different route lengths (${words}): the conductors of one feeder run together, so one length is likely a slip, and the solve takes each as written; check them`,

@@ -79,8 +79,18 @@ export function describeConductor(c: ConductorSpec | undefined, feeder: FeederSp
 export interface FeederRouteLengths {
   readonly lines: readonly (number | null)[];
   readonly neutral: number | null;
-  /** How the file wrote them, for the warning's figures. */
-  readonly unit: 'm' | 'ft';
+  /** The unit the file wrote each one in (the lines', then the neutral's), so the warning quotes each figure as written. */
+  readonly lineUnits: readonly LengthUnit[];
+  readonly neutralUnit: LengthUnit;
+}
+
+export type LengthUnit = 'm' | 'ft';
+
+/** The unit a conductor's route length is written in: its own length's, else the feeder's (lengthM first, as lengthOf reads them). */
+function lengthUnitOf(c: ConductorSpec | undefined, feeder: FeederSpec | undefined): LengthUnit {
+  if (c?.lengthM !== undefined) return 'm';
+  if (c?.lengthFt !== undefined) return 'ft';
+  return feeder?.lengthM === undefined && feeder?.lengthFt !== undefined ? 'ft' : 'm';
 }
 
 export interface FeederModel {
@@ -107,8 +117,7 @@ function unequalLengths(conductors: readonly (ConductorSpec | undefined)[], neut
   const neutralM = routeLength(neutral, feeder);
   const given = [...lines, neutralM].filter((m): m is number => m !== null);
   if (given.every((m) => m === given[0])) return undefined;
-  const inFeet = [...conductors, neutral].some((c) => c?.lengthFt !== undefined) || (feeder?.lengthFt !== undefined && feeder.lengthM === undefined);
-  return { lines, neutral: neutralM, unit: inFeet ? 'ft' : 'm' };
+  return { lines, neutral: neutralM, lineUnits: conductors.map((c) => lengthUnitOf(c, feeder)), neutralUnit: lengthUnitOf(neutral, feeder) };
 }
 
 /** @param naming how the file names the phases: a description per phase uses it (`L1: …`) @defaultValue 'A/B/C' */
