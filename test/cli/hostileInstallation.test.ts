@@ -63,6 +63,31 @@ describe('hostile installations through the CLI', () => {
     expect(runTrivar(['solve', 'examples/maple-court-riser.yaml']).stdout).not.toMatch(/neutral broke/);
   });
 
+  it('a caution every board gives with its own example figure is said once, naming whose break it quotes', () => {
+    // Invented: a lab board behind a main board; either board's neutral breaking puts the magnet supply above the line-to-line voltage.
+    const lab = [
+      'name: Lab wing',
+      'supply: { voltage: 230/400, frequencyHz: 50, transformer: { kVA: 160, impedancePercent: 4, xOverR: 3 } }',
+      'boards:',
+      '  - name: Main board',
+      '    feeder: { lengthM: 15, line: { mm2: 70 }, neutral: { mm2: 70 } }',
+      '    loads: [{ name: Compressor, connection: ABC-delta, kW: 15, pf: 0.85 }]',
+      '  - name: Lab board',
+      '    fedFrom: Main board',
+      '    feeder: { lengthM: 35, line: { mm2: 16 }, neutral: { mm2: 6 } }',
+      '    loads:',
+      '      - { name: Furnace, connection: A-N, kW: 9 }',
+      '      - { name: UPS, connection: B-N, kW: 7, pf: 0.7, sense: leading }',
+      '      - { name: Magnet supply, connection: C-N, kW: 3, pf: 0.6 }',
+    ].join('\n');
+    const r = runTrivar(['solve', '-', '--open-neutral'], lab);
+    expect(r.code, r.stderr).toBe(0);
+    const block = r.stdout.slice(r.stdout.indexOf("If a board's neutral broke"), r.stdout.indexOf('\nNotes'));
+    expect(block.match(/A broken neutral is a hazardous condition/g)).toHaveLength(1);
+    expect(block.replace(/\s+/g, ' ')).toMatch(/\(here, with the neutral broken at (Main|Lab) board, "Magnet supply( \(Lab board\))?" would see 399\.\d V/);
+    expect(block.match(/Never switch, fuse or disconnect the neutral/g)).toHaveLength(1);
+  });
+
   it('the same installation as JSON on stdin gives the same figures as the YAML file', () => {
     const json = JSON.stringify(readBoardText(readFileSync(`${ROOT}examples/tannery-lane-works.yaml`, 'utf8')));
     const fromJson = runTrivar(['solve', '-', '--json'], json);

@@ -136,13 +136,37 @@ function openNeutralSummary(r: InstallationResult): string | null {
     [{ header: 'neutral broken at', align: 'left' }, { header: 'bar V' }, { header: 'highest %nom' }, { header: 'lowest %nom' }, { header: 'state', align: 'left' }],
     rows,
   );
-  const cautions = [...new Set(studied.flatMap((b) => b.result.openNeutral!.cautions))];
+  const cautions = mergedOpenNeutralCautions(studied.map((b) => ({ board: b.name, highestPercent: b.result.openNeutral!.highestPercent ?? 0, cautions: b.result.openNeutral!.cautions })));
   return (
     section("If a board's neutral broke") +
     table +
     `\n${note("each board's own feeder neutral open, the rest intact; %nom: what that board's line-to-neutral loads see (the boards it feeds float with it); full study: --board \"<name>\".")}` +
     (cautions.length ? `\n${cautions.map((c) => wrapText(c, '  ! ')).join('\n')}` : '')
   );
+}
+
+/** Where a caution quotes its example: the caution's own words end before it. */
+const EXAMPLE_OPENING = '(here "';
+
+/**
+ * Each board's broken-neutral cautions, once: a caution every board gives alike is said once, and one
+ * that quotes an example figure (a load above the line-to-line voltage) is said once with the worst
+ * board's example, naming whose break it is, rather than once per board with near-equal figures.
+ */
+function mergedOpenNeutralCautions(boards: readonly { readonly board: string; readonly highestPercent: number; readonly cautions: readonly string[] }[]): string[] {
+  const byKind = new Map<string, { text: string; board: string; highestPercent: number; boards: Set<string> }>();
+  for (const b of boards)
+    for (const text of b.cautions) {
+      const at = text.indexOf(EXAMPLE_OPENING);
+      const kind = at < 0 ? text : text.slice(0, at);
+      const seen = byKind.get(kind);
+      if (!seen) byKind.set(kind, { text, board: b.board, highestPercent: b.highestPercent, boards: new Set([text]) });
+      else {
+        seen.boards.add(text);
+        if (b.highestPercent > seen.highestPercent) Object.assign(seen, { text, board: b.board, highestPercent: b.highestPercent });
+      }
+    }
+  return [...byKind.values()].map((k) => (k.boards.size > 1 ? k.text.replace(EXAMPLE_OPENING, `(here, with the neutral broken at ${k.board}, "`) : k.text));
 }
 
 /** The file's banks, in service in this solve: stated, as they are part of every figure above. */
