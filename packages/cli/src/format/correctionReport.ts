@@ -199,6 +199,9 @@ function selectionBlock(sel: BankSelection, label: PhaseLabeller, star: StarWord
     `  delivered ${fixed(sel.deliveredKvar, 2)} kvar at the solved voltage · nameplate ${fixed(sel.nameplateKvar, 2)} kvar · ${sel.units} unit${sel.units === 1 ? '' : 's'} · ${sel.steps.filter((s) => s.output !== null).length} switched step(s)`,
   );
   if (sel.steps.length) out.push(stepsTable(sel, label, star));
+  // A step across two lines reads differently per line; said once, here, unless the controller's line says it.
+  if (sel.controller?.thresholdBasis !== 'line-pair' && sel.steps.some((s) => s.output !== null && s.thresholdBasis === 'line-pair'))
+    out.push(indentLines([`C/k of a step across two lines:${LINE_PAIR_CK}`]));
   out.push(
     indentLines([
       `units from the ${sel.catalogueTitle}${sel.catalogue === 'typical' ? ` — ${sel.catalogueNote}` : ''}`,
