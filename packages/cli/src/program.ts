@@ -242,7 +242,7 @@ export function createProgram(io: CliIo, outcome: RunOutcome = { exitCode: EXIT.
       .option('--light-load <fraction>', 'check the fixed part at this fraction of every load (0-1)', numberIn(-1e-12, 1, 'a fraction from 0 to 1'))
       .addOption(new Option('--practice <region>', 'regional practice: typical catalogue, voltage margin, discharge time').choices(['iec', 'north-american']))
       .addOption(new Option('--outputs <n>', 'switched outputs of the bank controller').choices(['6', '8', '12']))
-      .option('--ct <amps>', 'primary of the controller current transformer, A', numberIn(0, 1e6, 'a current above 0 A'))
+      .option('--ct <amps>', 'primary of the controller current transformer, A', numberIn(0, 1e6, 'a current above 0 A and at most 1000000 A'))
       .option('--json', 'print the full report as JSON instead of the text report')
       .addOption(maxInputOption())
       .addHelpText('after', CORRECT_EXAMPLES)

@@ -58,6 +58,8 @@ function row(o: ArrangementOutcome, names: Readonly<Record<Arrangement, string>>
   // Without units for some branches the rest may still be built: its figures are shown, the verdict says part.
   const built = (o.report.selection?.units ?? 0) > 0;
   const partBuilt = built && o.report.status === 'no-suitable-units';
+  // Nothing built (no unit fits): there is no "after" to show, and the board as it stands is not one.
+  const noAfter = !built && o.report.status !== 'already-meets-target';
   return [
     name,
     partBuilt ? 'part built' : failsCheck.has(o.arrangement) && o.report.status.startsWith('meets') ? 'fails check' : overloading(o) ? 'overloads' : (VERDICT[o.report.status] ?? o.report.status),
@@ -65,10 +67,10 @@ function row(o: ArrangementOutcome, names: Readonly<Record<Arrangement, string>>
     built ? fixed(f.nameplateKvar, 1) : '-',
     built ? String(f.units) : '-',
     built ? String(f.switchedSteps) : '-',
-    f.targetPfAfter === null ? '-' : signedPfText(f.targetPfAfter),
-    f.neutralCurrentA === null ? '-' : fixed(f.neutralCurrentA, 1),
-    f.negativeSequencePercent === null ? '-' : fixed(f.negativeSequencePercent, 1),
-    fixed(f.lossesKW, 3),
+    noAfter || f.targetPfAfter === null ? '-' : signedPfText(f.targetPfAfter),
+    noAfter || f.neutralCurrentA === null ? '-' : fixed(f.neutralCurrentA, 1),
+    noAfter || f.negativeSequencePercent === null ? '-' : fixed(f.negativeSequencePercent, 1),
+    noAfter ? '-' : fixed(f.lossesKW, 3),
   ];
 }
 

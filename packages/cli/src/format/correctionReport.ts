@@ -132,7 +132,7 @@ function emptyWindowNote(sel: BankSelection, s: BankSelection['selections'][numb
   return `${label(s.branch)}: no capacitance satisfies both tolerance ends — meeting the target at −${tol.minusPercent} % needs at least ${fixed(s.minimumCapacitanceUF, d)} µF nominal, keeping every line within its bounds at +${tol.plusPercent} % allows at most ${fixed(hi, d)} µF`;
 }
 
-function branchTable(sel: BankSelection, label: PhaseLabeller): string {
+function branchTable(sel: BankSelection, label: PhaseLabeller, emptyInSizing: readonly string[]): string {
   const table = renderTable(
     [
       { header: 'branch', align: 'left' },
@@ -155,9 +155,15 @@ function branchTable(sel: BankSelection, label: PhaseLabeller): string {
   );
   const tol = sel.capacitanceTolerance;
   const notes = [
-    ...(sel.windowsHeldTogether
+    ...(sel.windowsHeldTogether && !sel.equalBankWindows
       ? [
           `µF needed: ranges that hold together — with every branch anywhere in its range, every line meets the target at −${tol.minusPercent} % and stays within its bounds at +${tol.plusPercent} % (first order, re-solved below); each branch's own range, taken alone, left no room`,
+        ]
+      : []),
+    // Said where the two tables would otherwise disagree on the page: a branch empty in the sizing, filled here.
+    ...(sel.equalBankWindows && filledHere(sel, label, emptyInSizing)
+      ? [
+          `µF needed: the range of an equal bank (balanced steps, the same capacitance on every branch) — with every branch anywhere in it, every line meets the target at −${tol.minusPercent} % and stays within its bounds at +${tol.plusPercent} %; the build chosen is such a bank, judged on that range rather than each branch's own${filledHere(sel, label, emptyInSizing)}`,
         ]
       : []),
     ...sel.selections.filter(emptyWindow).map((s) => emptyWindowNote(sel, s, label)),
@@ -165,25 +171,37 @@ function branchTable(sel: BankSelection, label: PhaseLabeller): string {
   return notes.length ? `${table}\n${indentLines(notes)}` : table;
 }
 
+/** Branches the continuous sizing left empty that the equal bank fills, named so the two tables agree on the page. */
+const filledHere = (sel: BankSelection, label: PhaseLabeller, emptyInSizing: readonly string[]): string => {
+  const filled = sel.selections.filter((s) => emptyInSizing.includes(s.branch) && s.designCapacitanceUF > 0).map((s) => label(s.branch));
+  return filled.length ? `, so ${filled.join(' and ')}, at 0 kvar in the sizing above, ${filled.length > 1 ? 'take' : 'takes'} capacitance here` : '';
+};
+
 /** A rating as written on its plate: whole amperes, or the decimals it has (a 12.5/5 A CT, not 13/5). */
 const ampsRating = (a: number): string => (Number.isInteger(a) ? String(a) : String(Number(a.toFixed(2))));
+
+/** What C/k of a step across two lines of a three-phase board assumes (controllerSettings.ts derives it). */
+const LINE_PAIR_CK = ' per line: the step is across two lines, and each of them sees √3/2 of its branch current as reactive current, read against that line\'s voltage to the neutral';
 
 function controllerLines(c: ControllerSettings): string[] {
   const band = `PF ≥ ${boundFigure(c.targetBand.minPf)} lagging${c.targetBand.maxPf === null ? (c.targetBand.leadingAllowed ? ', leading allowed' : ' up to 1.000') : ` up to ${fixed(c.targetBand.maxPf, 3)} lagging`}`;
   return [
     `outputs: ${c.outputsUsed} of ${c.outputs} used · ${c.measurement === 'one-line' ? 'balanced steps: an ordinary controller reading one CT' : 'steps serve single lines: the controller must measure every line (one CT per line)'}`,
     `CT ${ampsRating(c.ctPrimaryA)}/${ampsRating(c.ctSecondaryA)} A${c.ctChosen ? ' (chosen: next standard rating above 1.25 × the largest line current; give controller.ctPrimaryA if yours differs)' : ''}`,
-    `C/k of the smallest step (${fixed(c.smallestStepKvar, 2)} kvar at nominal voltage) = ${fixed(c.responseThresholdA, 3)} A; set ${fixed(c.responseSettingA, 3)} A (${c.settingFraction} × C/k)`,
+    `C/k of the smallest step (${fixed(c.smallestStepKvar, 2)} kvar at nominal voltage) = ${fixed(c.responseThresholdA, 3)} A${c.thresholdBasis === 'line-pair' ? LINE_PAIR_CK : ''}; set ${fixed(c.responseSettingA, 3)} A (${c.settingFraction} × C/k)`,
     `target band ${band} · switching delay ${c.switchingDelayS} s · a step waits ${c.reconnectionDelayS} s before it is switched on again (discharge time ${c.dischargeTimeS} s, ${c.dischargeRule})`,
   ];
 }
 
-function selectionBlock(sel: BankSelection, label: PhaseLabeller, star: StarWord): string {
+function selectionBlock(sel: BankSelection, label: PhaseLabeller, star: StarWord, emptyInSizing: readonly string[] = []): string {
   const out: string[] = [];
   out.push(
     `  delivered ${fixed(sel.deliveredKvar, 2)} kvar at the solved voltage · nameplate ${fixed(sel.nameplateKvar, 2)} kvar · ${sel.units} unit${sel.units === 1 ? '' : 's'} · ${sel.steps.filter((s) => s.output !== null).length} switched step(s)`,
   );
   if (sel.steps.length) out.push(stepsTable(sel, label, star));
+  // A step across two lines reads differently per line; said once, here, unless the controller's line says it.
+  if (sel.controller?.thresholdBasis !== 'line-pair' && sel.steps.some((s) => s.output !== null && s.thresholdBasis === 'line-pair'))
+    out.push(indentLines([`C/k of a step across two lines:${LINE_PAIR_CK}`]));
   out.push(
     indentLines([
       `units from the ${sel.catalogueTitle}${sel.catalogue === 'typical' ? ` — ${sel.catalogueNote}` : ''}`,
@@ -191,7 +209,7 @@ function selectionBlock(sel: BankSelection, label: PhaseLabeller, star: StarWord
       `chosen for ${sel.cost.statement} (cost ${fixed(sel.cost.value, 1)})`,
     ]),
   );
-  out.push(branchTable(sel, label));
+  out.push(branchTable(sel, label, emptyInSizing));
   if (sel.controller) out.push(`  Controller\n${indentLines(controllerLines(sel.controller).map((l) => `  ${l}`))}`);
   return out.join('\n');
 }
@@ -461,7 +479,9 @@ export function renderCorrectionReport(r: CorrectionReport): string {
       : '';
     parts.push(section('Sizing (continuous, before choosing units)') + sizingTable(r.sizing.branches, label) + shiftLines);
   }
-  if (r.selection) parts.push(section('Bank as built from units') + selectionBlock(r.selection, label, starWordOf(v.before.conventions.region)));
+  // Branches the bank's continuous sizing left empty (the "-" rows of its table), for the units table's note.
+  const emptyInSizing = r.sizing.arrangement === 'balancing-compensator' ? [] : r.sizing.branches.filter((b) => b.element === 'none').map((b) => b.branch);
+  if (r.selection) parts.push(section('Bank as built from units') + selectionBlock(r.selection, label, starWordOf(v.before.conventions.region), emptyInSizing));
   if (v.metering) parts.push(meteringSection(v.metering, lineTable(v.metering, label)));
   parts.push(section('Lines, before → after (verified by re-solving the board)') + lineTable(v, label));
   parts.push(section('Board, before → after') + boardLines(v));

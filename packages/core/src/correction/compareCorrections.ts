@@ -65,7 +65,13 @@ export interface CorrectionComparison {
   readonly rule: string;
 }
 
-/** Settings that belong to one arrangement only are dropped for the others (also used by the harmonic comparison). */
+/**
+ * Settings that belong to one arrangement only are dropped for the others (also used by the harmonic comparison).
+ * The target's definition is not one of them: every arrangement compared is judged on the one definition the
+ * comparison's header states, the one given or the banks' default (per-line). Left to its own default the
+ * compensator was judged on PF1+ beside banks judged line by line: two identical builds showed different
+ * "PF after", and a compensator was recommended as meeting a per-line target its weakest line missed.
+ */
 export function specFor(spec: CorrectionSpec, arrangement: Arrangement): CorrectionSpec {
   const { starPoint, share, compensator, balance, target, ...rest } = spec;
   const out: Record<string, unknown> = { ...rest, arrangement };
@@ -75,11 +81,15 @@ export function specFor(spec: CorrectionSpec, arrangement: Arrangement): Correct
     if (compensator !== undefined) out.compensator = compensator;
     if (balance !== undefined) out.balance = balance;
   }
-  if (target !== undefined) {
-    const { perPhase, ...t } = target;
-    out.target = arrangement === 'balancing-compensator' || perPhase === undefined ? t : { ...t, perPhase };
-  }
+  // Per-phase targets go to the compensator too: it refuses them (it makes every line alike), so it is shown
+  // as not applicable rather than judged on pf alone beside banks judged line by line.
+  out.target = { ...target, definition: target?.definition ?? comparedDefinition(spec) };
   return out as CorrectionSpec;
+}
+
+/** The definition every arrangement of a comparison is judged on: the one given, else the banks' default. */
+function comparedDefinition(spec: CorrectionSpec): NonNullable<NonNullable<CorrectionSpec['target']>['definition']> {
+  return spec.target?.definition ?? CORRECTION_DEFAULTS.definition;
 }
 
 export function figuresOf(r: CorrectionReport): ArrangementFigures {

@@ -5,8 +5,22 @@
  * current of the smallest step referred to the CT secondary,
  *   three-phase step  C/k = Q_step / (√3 · U_LL · k_CT)
  *   single-phase step C/k = Q_step / (U · k_CT)   (U across the step; derived)
+ *   line-pair step    C/k = (√3/2) · Q_step / (U_LL · k_CT)   (derived below)
  * with Q_step at the nominal voltage and k_CT = CT primary / secondary. The
  * setting is a share of it (0.6–0.7, from memory) so the controller does not hunt.
+ *
+ * The single-phase form is exact for a step to the neutral (its current is in
+ * quadrature with that line's voltage) and for a split-phase L1-L2 step (V_1N and
+ * V_2N lie along V_12, so the current is in quadrature with each). A step across two
+ * lines of a three-phase board is not (a line-pair step): with V_AN = V∠0°, V_AB
+ * = √3·V∠30°, and the branch current I = jωC·V_AB lies at 120°. Line A carries +I:
+ * 120° from V_AN, a quadrature part |I|·sin 120° = (√3/2)·|I| (and −|I|/2 in phase).
+ * Line B carries −I at −60°, and V_BN is at −120°: 60° apart, quadrature part
+ * |I|·sin 60° = (√3/2)·|I| (and +|I|/2 in phase). A controller that measures each
+ * line's current against that line's voltage to the neutral (the every-line
+ * measurement such steps need; a 3-wire board's virtual neutral alike) sees a
+ * step's switching as (√3/2)·Q/U_LL of reactive current in each of its two lines,
+ * so that is the step's C/k there.
  */
 import { CAPACITOR_DISCHARGE } from './capacitorDischarge.js';
 import { CORRECTION_DEFAULTS } from './correctionDefaults.js';
@@ -28,17 +42,25 @@ export function standardCtPrimaryA(amps: number): number {
 /**
  * C/k of one step, A on the CT secondary.
  * @param kvarAtNominalV the step's output at the nominal voltage, kvar
- * @param kind three-phase (balanced over three branches) or single-phase (one branch)
- * @param voltageV U_LL for a three-phase step, the voltage across the step for a single-phase one
+ * @param kind three-phase (balanced over three branches), single-phase (one branch to the neutral, or
+ *   across a split-phase board's two lines) or line-pair (one branch across two lines of a three-phase
+ *   board, read per line against the line's voltage to the neutral: see the top of this file)
+ * @param voltageV U_LL for a three-phase or line-pair step, the voltage across the step for a single-phase one
  */
-export function responseThresholdA(kvarAtNominalV: number, kind: 'three-phase' | 'single-phase', voltageV: number, ctRatio: number): number {
+export function responseThresholdA(kvarAtNominalV: number, kind: StepThresholdKind, voltageV: number, ctRatio: number): number {
   checkNumberArgument(kvarAtNominalV, 'kvarAtNominalV', "a step's output in kvar, a finite number above 0", (x) => x > 0);
-  if (kind !== 'three-phase' && kind !== 'single-phase') throw argumentIssueError('kind', '"three-phase" or "single-phase"', kind);
+  if (kind !== 'three-phase' && kind !== 'single-phase' && kind !== 'line-pair') throw argumentIssueError('kind', '"three-phase", "single-phase" or "line-pair"', kind);
   checkNumberArgument(voltageV, 'voltageV', 'a voltage in V, a finite number above 0', (x) => x > 0);
   checkNumberArgument(ctRatio, 'ctRatio', 'the CT ratio (primary A / secondary A), a finite number above 0', (x) => x > 0);
   const q = kvarAtNominalV * 1000;
-  return kind === 'three-phase' ? q / (Math.sqrt(3) * voltageV * ctRatio) : q / (voltageV * ctRatio);
+  if (kind === 'three-phase') return q / (Math.sqrt(3) * voltageV * ctRatio);
+  // The branch current's part in quadrature with each of its lines' voltages to the neutral: sin 60° = sin 120° = √3/2.
+  if (kind === 'line-pair') return (Math.sqrt(3) / 2) * (q / (voltageV * ctRatio));
+  return q / (voltageV * ctRatio);
 }
+
+/** How a step's C/k is read (see responseThresholdA). */
+export type StepThresholdKind = 'three-phase' | 'single-phase' | 'line-pair';
 
 export interface CurrentTransformer {
   readonly primaryA: number;
@@ -88,6 +110,7 @@ export function controllerSettings(input: ControllerInputs): ControllerSettings 
     ctRatio: primaryA / secondaryA,
     ctChosen: chosen,
     smallestStepKvar: smallest.kvarAtNominalV,
+    thresholdBasis: smallest.thresholdBasis,
     responseThresholdA: threshold,
     responseSettingA: CORRECTION_DEFAULTS.ckSettingFraction * threshold,
     settingFraction: CORRECTION_DEFAULTS.ckSettingFraction,

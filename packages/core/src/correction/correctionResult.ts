@@ -269,6 +269,13 @@ export interface BankStep {
   readonly detuningFactor: number;
   /** C/k of this step for the controller's CT, A on the secondary. */
   readonly responseThresholdA: number;
+  /**
+   * How that C/k is read: three-phase (a balanced step), single-phase (a step to the neutral, or across a
+   * split-phase board's two lines: its whole current is reactive in its line), line-pair (a step across two
+   * lines of a three-phase board: √3/2 of its branch current is reactive in each of the two lines, read
+   * against the line's voltage to the neutral).
+   */
+  readonly thresholdBasis: 'three-phase' | 'single-phase' | 'line-pair';
   readonly onAtDesign: boolean;
 }
 
@@ -284,6 +291,8 @@ export interface ControllerSettings {
   /** True when trivar chose the CT primary (none given). */
   readonly ctChosen: boolean;
   readonly smallestStepKvar: number;
+  /** How the smallest step's C/k is read (BankStep.thresholdBasis). */
+  readonly thresholdBasis: 'three-phase' | 'single-phase' | 'line-pair';
   /** C/k of the smallest step, A on the CT secondary. */
   readonly responseThresholdA: number;
   /** Suggested setting: `settingFraction` × C/k. */
@@ -351,6 +360,12 @@ export interface BankSelection {
    * which hold together (`BankSizing.roundingWindows`), not each branch's own.
    */
   readonly windowsHeldTogether: boolean;
+  /**
+   * True when a three-branch set was built as an equal bank (balanced steps only) against the equal bank's
+   * window (`BankSizing.equalShare`): the same range on every branch, which puts capacitance on a branch the
+   * continuous sizing left at 0 kvar (the least-kvar bank is unequal).
+   */
+  readonly equalBankWindows: boolean;
   /** Rating rule: at least (1 + margin) × nominal voltage across the unit, and the highest solved voltage within 110 % of rating. */
   readonly voltageMarginPercent: number;
   readonly continuousLimitPercent: number;

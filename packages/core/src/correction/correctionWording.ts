@@ -33,6 +33,8 @@ export function distinctDigits(value: number, bound: number, digits = 3): [strin
   return [value.toFixed(d), bound.toFixed(digits)];
 }
 const f1 = (x: number) => x.toFixed(1);
+/** A percentage as set: 5, 2.5 (no trailing zeros). */
+const trimmed = (x: number) => String(Number(x.toFixed(1)));
 const pfText = (pf: number | null, sense: PowerFactorSense) => (pf === null ? 'no current (no PF)' : sense === 'unity' ? '1.000' : `${f3(pf)} ${sense}`);
 
 export const TARGET_STATEMENTS: Record<TargetDefinition, string> = {
@@ -162,6 +164,30 @@ export const warningText = {
     `the capacitor-only compensator meets the power-factor target but balances only partly (|I2|/|I1| = ${negative.toFixed(1)} %, |I0|/|I1| = ${zero.toFixed(1)} %)${reactors.length ? `; full balance needs reactors on ${reactors.join(', ')}` : ''}`,
   ctBelowLineCurrent: (primaryA: number, lineA: number) =>
     `the CT primary (${primaryA} A) is below the largest line current (${lineA.toFixed(1)} A): the CT runs past its rating and saturates, and the controller misreads the reactive current; give controller.ctPrimaryA of at least ${Math.ceil(lineA)} A`,
+  manySmallUnits: (w: {
+    units: number;
+    nameplateKvar: number;
+    unitCostKvar: number;
+    branch: PhaseLabel;
+    lowUF: number;
+    highUF: number;
+    widthPercent: number;
+    minusPercent: number;
+    plusPercent: number;
+    perLineTarget: boolean;
+    leadingAllowed: boolean;
+    upperBound: number | null;
+  }) => {
+    const bound = w.upperBound !== null ? `stay at or below ${w.upperBound.toFixed(3)} lagging` : w.leadingAllowed ? 'stay within the leading limit' : 'not lead';
+    const relax = [
+      ...(w.upperBound !== null ? ['raise or drop the upper bound (--upper-pf, target.maxLaggingPf)'] : []),
+      ...(!w.leadingAllowed && w.upperBound === null ? ['let lines lead (--allow-leading, target.leading: allowed)'] : []),
+      ...(w.perLineTarget ? ['judge one board-wide figure instead of every line (--definition effective or vector)'] : []),
+      `give units with a narrower capacitance tolerance (correction.capacitanceTolerance, now −${trimmed(w.minusPercent)} % / +${trimmed(w.plusPercent)} %)`,
+      'or cap correction.bank.maxUnitsPerBranch so the search builds from larger units (its verdict then says whether that build still holds the target across the tolerance)',
+    ];
+    return `the bank takes ${w.units} units, ${f1(w.unitCostKvar * w.units)} kvar-equivalent of per-unit cost beside ${f1(w.nameplateKvar)} kvar of nameplate, because the capacitance that holds the target across the tolerance is only ${w.widthPercent.toFixed(1)} % wide (${w.branch}: ${w.lowUF.toFixed(1)} – ${w.highUF.toFixed(1)} µF) and only small units land in it: ${w.perLineTarget ? 'every line' : 'the board figure'} must reach its minimum at −${trimmed(w.minusPercent)} % capacitance and ${bound} at +${trimmed(w.plusPercent)} %, and ${w.perLineTarget ? 'a line already near that bound leaves' : 'a board already near it leaves'} little room. To build it from fewer, larger units: ${relax.join('; ')}`;
+  },
   ckBelowResolution: (settingA: number, resolutionA: number, chosen: boolean) =>
     `the C/k setting (${settingA.toFixed(3)} A) is below about ${resolutionA} A, finer than controllers usually resolve (common practice, no source): ${chosen ? 'the smallest step is small for this CT' : 'a smaller CT primary'} or a larger smallest step brings it up`,
   outputsShort: (branches: readonly PhaseLabel[], outputs: number) =>

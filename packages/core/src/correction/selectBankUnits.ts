@@ -36,6 +36,7 @@ import { firstFit, searchSet, shortOfTarget, type Need, type SetBuild, type Unit
 import { defaultPractice } from './capacitorDischarge.js';
 import { controllerSettings, resolveCurrentTransformer, responseThresholdA } from './controllerSettings.js';
 import { checkObjectArgument } from '../_internal/argumentChecks.js';
+import type { TargetCheck } from './correctionTarget.js';
 
 export interface SelectBankUnitsOptions {
   /** Regional practice: typical catalogue, voltage margin, discharge time. @defaultValue 'north-american' at 60 Hz, 'iec' at 50 Hz */
@@ -235,6 +236,7 @@ export function selectBankUnits(sized: SizedEquipment, options?: SelectBankUnits
   const fixedF = sized.branches.map(() => 0);
   const builds: { set: (typeof sets)[number]; build: SetBuild }[] = [];
   const unbuildable: number[] = [];
+  let equalBankWindows = false;
   for (const set of sets) {
     const infos = set.indices.map((i) => branchInfo[i]!);
     if (!infos.some((x) => x.capacitor)) continue;
@@ -262,13 +264,14 @@ export function selectBankUnits(sized: SizedEquipment, options?: SelectBankUnits
     // enough there does not on it) is unbuildable, not "short of the target": the others are still built.
     const uncovered = balancedChoices.length ? [] : set.indices.filter((i, k) => branchInfo[i]!.capacitor && !trimChoices[k]!.length);
     unbuildable.push(...uncovered);
+    const equalNeeds = three && !withReactor ? equalNeedsOf(set.indices) : undefined;
     const search = (needs: readonly Need[]) =>
       searchSet(
         needs,
         balancedChoices,
         trimChoices,
         { unitCostKvar, minSwitchedSteps: CORRECTION_DEFAULTS.minSwitchedSteps, minStepKvar, outputs: outputsPerSet, maxUnitsPerBranch: maxUnits },
-        three && !withReactor ? equalNeedsOf(set.indices) : undefined,
+        equalNeeds,
       );
     // Windows that hold together, where the sizing found them (each branch's own are then empty): the
     // narrowest set (least kvar) that a build fits whole, else the best build over every set.
@@ -279,6 +282,8 @@ export function selectBankUnits(sized: SizedEquipment, options?: SelectBankUnits
       usedNeed[i] = build.needs[k]!;
     });
     builds.push({ set, build });
+    // The search hands back the very needs it judged the build on: the equal bank's, or each branch's own.
+    if (equalNeeds !== undefined && build.needs === equalNeeds) equalBankWindows = true;
     const names = set.indices.map((i) => label(branchInfo[i]!.b.branch));
     build.tiers.forEach((tier, k) => {
       if (uncovered.includes(set.indices[k]!)) return;
@@ -292,6 +297,9 @@ export function selectBankUnits(sized: SizedEquipment, options?: SelectBankUnits
     if (build.violations.minStep) warn('step-below-minimum', warningText.stepBelowMinimum(names, minStepKvar), 'bank.minStepKvar', null, minStepKvar);
   }
 
+  // The board has three lines where any slot touches C: a three-phase board's equipment always spans its
+  // three lines (a delta bank lists A-B, B-C and C-A even where one is empty); a split-phase board has A and B.
+  const threePhaseLines = slots.some((s) => s.from === 'C' || s.to === 'C');
   // Steps, numbered across sets.
   const ct = resolveCurrentTransformer(controllerSpec, opts.lineCurrentA ?? largestLineCurrent(sized));
   const steps: BankStep[] = [];
@@ -316,6 +324,8 @@ export function selectBankUnits(sized: SizedEquipment, options?: SelectBankUnits
     const slot = branchInfo[indices[0]!]!.slot;
     const lineToLine = slot.to === 'N' || slot.to === 'star' ? slot.vNominal * Math.sqrt(3) : slot.vNominal;
     const kind = three ? 'three-phase' : 'single-phase';
+    // One branch across two lines of a three-phase board: a per-line controller sees √3/2 of its current.
+    const thresholdBasis = three ? 'three-phase' : slot.to !== 'N' && slot.to !== 'star' && threePhaseLines ? 'line-pair' : 'single-phase';
     // Units rated for another frequency (a catalogue's, or a typical one of another practice, --practice) are said once each.
     if (c.unit.ratedHz !== hz && !frequencyWarned.has(c.unit.name)) {
       frequencyWarned.add(c.unit.name);
@@ -333,7 +343,8 @@ export function selectBankUnits(sized: SizedEquipment, options?: SelectBankUnits
       deliveredKvar: kvarAt((i) => branchInfo[i]!.b.appliedV),
       capacitancePerBranchUF: perBranchF * 1e6,
       detuningFactor: 0,
-      responseThresholdA: responseThresholdA(kvarAtNominalV, kind, three ? lineToLine : slot.vNominal, ct.primaryA / ct.secondaryA),
+      responseThresholdA: responseThresholdA(kvarAtNominalV, thresholdBasis, three || thresholdBasis === 'line-pair' ? lineToLine : slot.vNominal, ct.primaryA / ct.secondaryA),
+      thresholdBasis,
       onAtDesign: true,
     };
   };
@@ -426,6 +437,31 @@ export function selectBankUnits(sized: SizedEquipment, options?: SelectBankUnits
     warn('ck-below-resolution', warningText.ckBelowResolution(controller.responseSettingA, CORRECTION_DEFAULTS.ckResolutionA, ct.chosen), 'controller.ctPrimaryA', controller.responseSettingA, CORRECTION_DEFAULTS.ckResolutionA);
   const nameplateKvar = steps.reduce((s, st) => s + st.nameplateKvar, 0);
   const units = steps.reduce((s, st) => s + st.units, 0);
+  // Many small units forced by a narrow capacitance range: say what sets the range and what would widen it.
+  const narrow = narrowestWindow(selections);
+  if (narrow && narrow.widthPercent < NARROW_WINDOW_PERCENT && unitCostKvar * units > nameplateKvar) {
+    const perLineTarget = (sized as { check?: TargetCheck }).check?.board === null;
+    warn(
+      'many-small-units',
+      warningText.manySmallUnits({
+        units,
+        nameplateKvar,
+        unitCostKvar,
+        branch: label(narrow.branch),
+        lowUF: narrow.lowUF,
+        highUF: narrow.highUF,
+        widthPercent: narrow.widthPercent,
+        minusPercent: minus * 100,
+        plusPercent: plus * 100,
+        perLineTarget,
+        leadingAllowed: target.leading === 'allowed',
+        upperBound: target.maxLaggingPf ?? null,
+      }),
+      'capacitanceTolerance',
+      narrow.widthPercent,
+      NARROW_WINDOW_PERCENT,
+    );
+  }
   return {
     frequencyHz: hz,
     equipment,
@@ -435,6 +471,7 @@ export function selectBankUnits(sized: SizedEquipment, options?: SelectBankUnits
     catalogueNote: typical ? selectionWording.typicalNote : selectionWording.userNote,
     capacitanceTolerance: { minusPercent: minus * 100, plusPercent: plus * 100 },
     windowsHeldTogether: together !== null,
+    equalBankWindows,
     voltageMarginPercent: margin * 100,
     continuousLimitPercent: limitV * 100,
     deliveryFloorPercent: floor * 100,
@@ -448,6 +485,25 @@ export function selectBankUnits(sized: SizedEquipment, options?: SelectBankUnits
     unbuildable: unbuildableInfo,
     warnings,
   };
+}
+
+/**
+ * A capacitance range narrower than this (max/min − 1, %) with a build whose per-unit cost exceeds the
+ * capacitance it holds is one only many small units can hit: the report says why (a design choice,
+ * common practice, no source: 5 % is about the step of the smaller units in a branch of a few of them).
+ */
+const NARROW_WINDOW_PERCENT = 5;
+
+/** The built capacitor branch with the narrowest range, or null where none has an upper end. */
+function narrowestWindow(selections: readonly BranchSelection[]): { branch: string; lowUF: number; highUF: number; widthPercent: number } | null {
+  let best: { branch: string; lowUF: number; highUF: number; widthPercent: number } | null = null;
+  for (const s of selections) {
+    // An empty range (max below min) is worded by the units table itself; it forces no unit size.
+    if (s.units <= 0 || s.maximumCapacitanceUF === null || !(s.minimumCapacitanceUF > 0) || s.maximumCapacitanceUF < s.minimumCapacitanceUF) continue;
+    const widthPercent = 100 * (s.maximumCapacitanceUF / s.minimumCapacitanceUF - 1);
+    if (!best || widthPercent < best.widthPercent) best = { branch: s.branch, lowUF: s.minimumCapacitanceUF, highUF: s.maximumCapacitanceUF, widthPercent };
+  }
+  return best;
 }
 
 /** Largest line current before correction, from a sizing's line comparison (0 when it has none). */

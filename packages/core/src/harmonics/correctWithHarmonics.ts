@@ -410,6 +410,7 @@ export function correctWithBankCheck<Check>(
   });
   const runs = [plain, ...detuned];
   const third = plain.thirdPercent > 100 * SIGNIFICANT_THIRD;
+  // The order of trial is only said where it was chosen here: a file that fixes the detuning tried one factor.
   // Practice: 14 % where the 3rd matters, else 7 % (then 5.67 %), common practice [METHODS §5].
   const order = third ? [...detuned].sort((a, b) => b.summary.detuningPercent - a.summary.detuningPercent) : [...detuned].sort((a, b) => Math.abs(a.summary.detuningPercent - 7) - Math.abs(b.summary.detuningPercent - 7));
   const chosen = plain.summary.passes ? plain : (order.find((v) => v.summary.passes) ?? null);
@@ -418,7 +419,7 @@ export function correctWithBankCheck<Check>(
   const summary = chosen
     ? chosen === plain
       ? 'the plain bank passes the harmonic check: no detuning needed'
-      : `the plain bank fails the harmonic check (${why(plain)}); chosen: ${chosen.summary.name} (tuned to h = ${chosen.summary.tuningOrder!.toFixed(2)}, ${chosen.summary.unitRatedV?.toFixed(0)} V capacitors)${third ? '; 14 % is tried first because the third harmonic is significant' : ''}`
+      : `the plain bank fails the harmonic check (${why(plain)}); chosen: ${chosen.summary.name} (tuned to h = ${chosen.summary.tuningOrder!.toFixed(2)}, ${chosen.summary.unitRatedV?.toFixed(0)} V capacitors)${third && setting === 'auto' ? '; 14 % is tried first because the third harmonic is significant' : ''}`
     : `no variant passes the harmonic check (${runs.map((v) => `${v.summary.name}: ${why(v)}`).join(' | ')}): a tuned filter or a specialist harmonic study is needed; the plain bank is shown`;
   // A bank that meets the target but fails the harmonic check in every variant is not one to install:
   // the verdict's summary and the warnings say so beside the figures (the check itself is below them).

@@ -71,6 +71,8 @@ export function correctionComparisonBlocks(c: CorrectionComparison | HarmonicCom
         const f = o.figures;
         if (!o.report || !f) return withVariant([name, 'not applicable', dash, dash, dash, dash, dash, dash], o);
         const built = o.report.status !== 'no-suitable-units';
+        // Nothing built (no unit fits): no "after" to show; the board as it stands is not one.
+        const noAfter = (o.report.selection?.units ?? 0) === 0 && o.report.status !== 'already-meets-target';
         return withVariant([
           name,
           VERDICT_WORDS[o.report.status] ?? o.report.status,
@@ -78,8 +80,8 @@ export function correctionComparisonBlocks(c: CorrectionComparison | HarmonicCom
           f.reactorKvar > 0 ? fixed(f.reactorKvar, 1) : dash,
           built ? fixed(f.nameplateKvar, 1) : dash,
           built ? String(f.units) : dash,
-          f.targetPfAfter === null ? dash : fixed(f.targetPfAfter, 3),
-          fixed(f.lossesKW, 3),
+          noAfter || f.targetPfAfter === null ? dash : fixed(f.targetPfAfter, 3),
+          noAfter ? dash : fixed(f.lossesKW, 3),
         ], o);
       }),
       note: [
