@@ -187,6 +187,13 @@ describe('rows closer together than one interval', () => {
     expect(result.sequence!.irregularSteps).toBe(2);
   });
 
+  it("the bank's yearly rate is taken over the hour the rows cover, not 5 × 15 min", () => {
+    const { result } = profileOf(joinery, ['time', 'Spindle moulder [x]', 'Glue pot [x]'], rows, { bank: true });
+    const step = result.bank!.steps[0]!;
+    // A year is 365.25 × 24 = 8,766 h: one closing in 1 h is 8,766 a year (7,013 over 1.25 h).
+    expect(step.closingsPerYear).toBeCloseTo(step.closings * 8766, 6);
+  });
+
   it('regular rows stand for one interval each: no weights', () => {
     const { table, result } = profileOf(joinery, ['time', 'Spindle moulder [x]', 'Glue pot [x]'], [rows[0]!, rows[1]!, rows[3]!]);
     expect(table.rowHours).toBeNull();

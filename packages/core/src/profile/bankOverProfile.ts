@@ -131,7 +131,9 @@ export function bankOverProfile(input: BankOverProfileInput, options: Pick<Profi
   const fixed = designed?.fixed ?? [];
   if (steps.length || fixed.length) {
     const run = input.simulate(steps, fixed, settings);
-    const years = (n * input.intervalMs) / (365.25 * 86_400_000);
+    // The time the rows cover (each row its own hours where they are not one interval apart).
+    const spanMs = input.rowHours ? input.rowHours.reduce((a, h) => a + h, 0) * 3_600_000 : n * input.intervalMs;
+    const years = spanMs / (365.25 * 86_400_000);
     const stepRuns = steps.map((s, k) => ({
       step: s.output ?? k + 1,
       channel: s.channel,

@@ -281,14 +281,20 @@ function phaseRatingOf(metered: number, ownLoads: number, loads: readonly BoardL
   for (let l = 0; l < ownLoads; l++) {
     if (boardOf(l) !== boardOf(metered)) continue;
     let on = false;
+    let whole = true;
     for (const b of loads[l]!.branches) {
-      if (b.from !== phase && b.to !== phase) continue;
+      if (b.from !== phase && b.to !== phase) {
+        whole = false;
+        continue;
+      }
       const share = b.to === 'N' || b.from === 'N' ? 1 : 0.5;
+      whole &&= share === 1;
       p += share * b.sNominal.re;
       q += share * b.sNominal.im;
       on = true;
     }
-    if (on) names.push(loads[l]!.name);
+    // A load across phases is in the total only for its part on this one (the rest of it is off or driven elsewhere).
+    if (on) names.push(whole ? loads[l]!.name : `part of ${loads[l]!.name}`);
   }
   if (!(p > 0)) return { pf: null, tanPhi: 0, loads: names };
   return { pf: p / Math.hypot(p, q), tanPhi: q / p, loads: names };
