@@ -192,7 +192,7 @@ export function planTargets(header: readonly string[], ownLoads: number, resolve
       if (other) issues.push(inputIssue('driven_twice', `header (${quoteText(name)})`, `each load driven by one column target; ${quoteText(loads[l]!.name)} is also in ${quoteText(other)}`, name));
       drivenBy.set(l, name);
     }
-    targets.push({ name, kind: t.kind, loads: t.loads, columns: t.columns, ...(t.kind === 'phase' ? { phaseRating: phaseRatingOf(t.loads[0]!, ownLoads, loads, resolver) } : {}) });
+    targets.push({ name, kind: t.kind, loads: t.loads, columns: t.columns, ...(t.kind === 'phase' ? { phaseRating: phaseRatingOf(t.loads[0]!, ownLoads, loads, resolver, inService) } : {}) });
   }
   const undriven = loads
     .slice(0, ownLoads)
@@ -267,19 +267,20 @@ function countedTwiceIssues(targets: readonly ColumnTarget[], loads: readonly Bo
 }
 
 /**
- * The rated power of the file's own loads on a metered load's phase (same board): a branch from that phase
+ * The rated power of the file's own loads on a metered load's phase (same board, banks in service aside): a branch from that phase
  * to the neutral whole, a line-to-line branch half (its power is drawn through two lines). A metered phase
  * given in kW alone is taken at this power factor: the loads there are what the meter sees, and PF 1 would
  * hide their reactive power from the currents, the power factor and the bank.
  */
-function phaseRatingOf(metered: number, ownLoads: number, loads: readonly BoardLoad[], resolver: TargetResolver): NonNullable<ColumnTarget['phaseRating']> {
+function phaseRatingOf(metered: number, ownLoads: number, loads: readonly BoardLoad[], resolver: TargetResolver, inService: ReadonlySet<number>): NonNullable<ColumnTarget['phaseRating']> {
   const phase = loads[metered]!.branches[0]!.from;
   const boardOf = (l: number) => resolver.boardOf?.(l) ?? 0;
   let p = 0;
   let q = 0;
   const names: string[] = [];
   for (let l = 0; l < ownLoads; l++) {
-    if (boardOf(l) !== boardOf(metered)) continue;
+    // A bank the file lists in service is solved at its rating beside the total, so its kvar is not the meter's share.
+    if (boardOf(l) !== boardOf(metered) || inService.has(l)) continue;
     let on = false;
     let whole = true;
     for (const b of loads[l]!.branches) {
