@@ -14,11 +14,13 @@ import {
   parseBoard,
   planColumns,
   planDrivers,
+  planInstallationColumns,
   profileSection,
   studyProfile,
   type GapFill,
   type InputIssue,
 } from '@trivar/core';
+import { ferrybankInService } from '../support/ferrybankInService.js';
 
 const SUPPLY = { system: 'three-phase-4wire', voltage: { lineToLine: 400 }, frequencyHz: 50 } as const;
 const V_PHASE = 400 / Math.sqrt(3);
@@ -95,6 +97,16 @@ describe('a metered phase given in kW alone', () => {
     // The report states it among the facts of the data.
     const facts = profileSection(result, []).blocks.flatMap((b) => (b.kind === 'facts' ? b.items : []));
     expect(facts).toContainEqual(['Columns read', result.columnNotes[0]]);
+  });
+
+  it('on a sub-board: from the loads there, half of each line-to-line branch on the phase, the bank in service aside', () => {
+    // The shipped joinery's finishing shop: spray booth fans 11 kW at 0.8 and drying heaters 12 kW at PF 1, both
+    // delta; line A carries half of the A-B and C-A branches of each, so P = (11 + 12)/3 kW, Q = 11/3 × 0.75 kvar.
+    // Its bank (25 + 25 kvar, in service in the file) is solved at its rating beside the total, so it is not counted.
+    const plan = planInstallationColumns(ferrybankInService, ['time', 'Finishing shop/phase A [kW]']);
+    const rating = plan.targets[0]!.phaseRating!;
+    expect(rating.pf).toBeCloseTo(23 / Math.hypot(23, 11 * 0.75), 12);
+    expect(rating.loads).toEqual(['part of Finishing shop/Spray booth fans', 'part of Finishing shop/Drying room heaters']);
   });
 
   it('is taken at PF 1 where the file has no load drawing power on that phase, and says that too', () => {
