@@ -60,7 +60,8 @@ function powers(i: number): ComplexValue[] {
     c(p2, p2 * tan(0.9)),
     c(-6000 * values[2]![i]!, 0),
     c(0, 0), // the cellar pump has no column: off
-    c(values[3]![i]! * 1000, 0), // metered phase B at unity PF
+    // Metered phase B in kW alone: at the rated PF of the file's loads on B, Flat 1's 0.95 (not unity: that hid their kvar).
+    c(values[3]![i]! * 1000, values[3]![i]! * 1000 * tan(0.95)),
   ];
 }
 const phaseOf = ['A', 'B', 'C', 'C', 'A', 'B'];

@@ -58,9 +58,12 @@ offset) and whose other headers are "<target> [<quantity>]":
             a phase is metered whole: no column (nor --unlisted-at-rating) for a load on it as well
   quantity  x (fraction of rating) | kW | kW and kvar | kW and pf | A and pf, each of a pair its own
             column ("oven [kW]", "oven [pf]"; pf < 0 = leading)
-Intervals from 1 s to 1 h. Gaps and repeated times are reported; gaps stay out of every figure
-unless --fill-gaps says how to fill them. Tariff, limits and the bank live under profile: in the
-board file (see trivar schema).
+  kW alone  a load or group at its loads' own rated power factors, a group's kW shared by rated kW;
+            a phase at the rated power factor of the file's loads on it (the output says which)
+Columns separated by commas. Intervals from 1 s to 1 h; a row a part of an interval before the next
+counts for that part. Gaps and repeated times are reported; gaps stay out of every figure unless
+--fill-gaps says how to fill them (a warning where more than 10 % of the intervals are made up).
+Tariff, limits and the bank live under profile: in the board file (see trivar schema).
 
 Examples:
   node scripts/generate-profile-example.mjs /tmp/quay-street.csv

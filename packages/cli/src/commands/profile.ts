@@ -102,8 +102,10 @@ export async function computeProfileStudy(spec: ReturnType<typeof parseBoard>, d
         columns,
         utcMs: table.utcMs,
         intervalMs: table.intervalMs,
+        rowHours: table.rowHours,
         sequence: table.report,
         undriven: { loads: plan.undriven, atRating: plan.undrivenAtRating },
+        columnNotes: plan.notes ?? [],
         ...(spec.profile ? { profile: spec.profile } : {}),
       },
       {

@@ -8,14 +8,19 @@ const money = (x: number | null) => (x === null ? '-' : fixed(x, 2));
 /** Labels of a board file named A/B/C: what a caller without the board's naming gets. */
 const LETTERED = labellerOf('A/B/C');
 
-export function dataLines(r: Pick<ProfileResult, 'sequence' | 'intervals' | 'timeZone' | 'undriven' | 'path'>): string[] {
+/** Data lines longer than this wrap. */
+const LONG_LINE = 120;
+
+export function dataLines(r: Pick<ProfileResult, 'sequence' | 'intervals' | 'timeZone' | 'undriven' | 'path'> & { readonly columnNotes?: readonly string[] }): string[] {
   const s = r.sequence;
   const lines = [`${thousands(r.intervals.count)} intervals of ${r.intervals.intervalSeconds} s, ${r.intervals.first} to ${r.intervals.last} (${r.timeZone})`];
   if (s) lines.push(...intervalSequenceWords(s));
   if (r.undriven && r.undriven.loads.length)
     lines.push(`${r.undriven.loads.length} board load${r.undriven.loads.length === 1 ? '' : 's'} with no column (${r.undriven.loads.slice(0, 4).join(', ')}${r.undriven.loads.length > 4 ? ', ...' : ''}): ${r.undriven.atRating ? 'held at rating' : 'taken as off (--unlisted-at-rating keeps them on)'}`);
+  lines.push(...(r.columnNotes ?? []));
   lines.push(`solved on the ${r.path === 'closed-form' ? 'closed-form (Millman) path: phase-to-neutral loads and a neutral conductor' : 'nodal path'}`);
-  return lines.map((l) => `  ${l}`);
+  // A sentence (an irregular step, a column's reading) wraps with a hanging indent; a fact a little past the width stays whole.
+  return lines.map((l) => (l.length > LONG_LINE ? wrapText(l, '  ', '    ') : `  ${l}`));
 }
 
 export function currentTable(s: ProfileSummary, label: PhaseLabeller): string {

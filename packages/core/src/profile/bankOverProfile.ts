@@ -16,6 +16,9 @@ import type { IntervalFigures } from './solveBatch.js';
 import type { ProfileSummary } from './summariseFigures.js';
 import { hoursBelowTarget, type ProfileBankResult, type ProfileStudyOptions } from './studyProfile.js';
 import { judgedNominalOf } from '../board/nominalVoltages.js';
+import { InputError, inputIssue, type InputIssue } from '../errors.js';
+import { conventionsOf } from '../board/conventions/boardConventions.js';
+import { labellerOf } from '../board/conventions/phaseNames.js';
 
 export interface BankOverProfileInput {
   /** The board the bank is on (its controller measures the board's incomer). */
@@ -29,6 +32,8 @@ export interface BankOverProfileInput {
   readonly meterBefore?: IntervalFigures;
   readonly profile?: ProfileSpec;
   readonly intervalMs: number;
+  /** The hours each interval stands for where rows are not all one interval apart. @defaultValue every row one interval */
+  readonly rowHours?: Float64Array | null;
   readonly label: (i: number) => string;
   readonly summarise: (figures: IntervalFigures) => ProfileSummary;
   /** Runs the switching over every interval with these steps (the figures returned: the bank's board). */
@@ -62,6 +67,24 @@ function whyNoSteps(f: IntervalFigures, targetPf: number, coverShare: number): N
   return { reason, words: noBankWords(reason, targetPf, importing ? below / importing : 0, coverShare) };
 }
 
+/**
+ * The parts of profile.bank that need a neutral, on a board without one: single-phase steps are connected line
+ * to neutral, so `perPhase: true` (steps sized per phase) and a step on one phase have nothing to connect to.
+ * Refused by field rather than dropped (perPhase would quietly size three-phase steps) or left to the solver
+ * (a step from a phase to a missing neutral has no solution).
+ */
+function needsNeutralIssues(board: Board, bank: NonNullable<ProfileSpec['bank']>): InputIssue[] {
+  if (board.hasNeutral) return [];
+  const label = labellerOf(conventionsOf(board).phaseNames);
+  const why = `on a board without a neutral (${board.name}): single-phase steps connect line to neutral`;
+  const issues: InputIssue[] = [];
+  if (bank.perPhase) issues.push(inputIssue('not_applicable', 'profile.bank.perPhase', `false or left out ${why}; the steps are then three-phase`, true));
+  bank.steps?.forEach((step, k) => {
+    if (step.phase && step.phase !== 'ABC') issues.push(inputIssue('not_applicable', `profile.bank.steps.${k}.phase`, `ABC (a three-phase step) or left out ${why}`, label(step.phase)));
+  });
+  return issues;
+}
+
 /** The bank's result and its run; why no bank was sized (steps sized from the profile, none needed); null when no bank is asked for. */
 export function bankOverProfile(input: BankOverProfileInput, options: Pick<ProfileStudyOptions, 'bank' | 'targetPf' | 'designedBank'>): BankOverProfile | null {
   const { board, before, label } = input;
@@ -69,6 +92,8 @@ export function bankOverProfile(input: BankOverProfileInput, options: Pick<Profi
   const designed = options.designedBank;
   if (!options.bank && !designed) return null;
   const b = input.profile?.bank;
+  const neutralIssues = !designed && b ? needsNeutralIssues(board, b) : [];
+  if (neutralIssues.length) throw new InputError(neutralIssues, "the profile's bank does not fit the board");
   const discharge = designed?.discharge ?? CAPACITOR_DISCHARGE[defaultPractice(board.frequencyHz)];
   const settings: SwitchingSettings & { coverShare: number | null } = designed
     ? { ...designed.settings, coverShare: null }
@@ -106,7 +131,9 @@ export function bankOverProfile(input: BankOverProfileInput, options: Pick<Profi
   const fixed = designed?.fixed ?? [];
   if (steps.length || fixed.length) {
     const run = input.simulate(steps, fixed, settings);
-    const years = (n * input.intervalMs) / (365.25 * 86_400_000);
+    // The time the rows cover (each row its own hours where they are not one interval apart).
+    const spanMs = input.rowHours ? input.rowHours.reduce((a, h) => a + h, 0) * 3_600_000 : n * input.intervalMs;
+    const years = spanMs / (365.25 * 86_400_000);
     const stepRuns = steps.map((s, k) => ({
       step: s.output ?? k + 1,
       channel: s.channel,
@@ -127,6 +154,7 @@ export function bankOverProfile(input: BankOverProfileInput, options: Pick<Profi
       { targetPf: settings.targetPf, upperPf: upperPf ?? null, responseShare: settings.responseShare },
       { smallestKvar: steps.length ? Math.min(...steps.map((x) => x.kvar)) : 0, totalKvar, connectedKvar: steps.length ? run.connectedKvar : null },
       input.intervalMs,
+      input.rowHours ?? null,
     );
     const bank: ProfileBankResult = {
       source,

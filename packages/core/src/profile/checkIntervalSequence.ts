@@ -37,6 +37,13 @@ export interface IntervalTable {
   readonly intervalMs: number;
   /** 1 where the interval was made by the gap fill. */
   readonly filled: Uint8Array;
+  /**
+   * Where some rows are not a whole number of intervals apart: the hours each row stands for, the time up
+   * to the next row less any whole intervals counted missing there (at most about 1.5 intervals; the last
+   * row one interval). Energy, hours and demand weigh each row by it. Null where every step is a whole
+   * number of intervals: every row one interval.
+   */
+  readonly rowHours: Float64Array | null;
   readonly report: SequenceReport;
 }
 
@@ -75,6 +82,22 @@ function typicalStep(utc: Float64Array): number {
   let bestCount = 0;
   for (const [d, n] of counts) if (n > bestCount || (n === bestCount && d < best)) [best, bestCount] = [d, n];
   return best;
+}
+
+/**
+ * The hours each row stands for (IntervalTable.rowHours): a meter or logger writes the reading for the time
+ * from its stamp to the next, so a row 7 min before the next stands for 7 min, not a whole interval; a step
+ * long enough to hold missing intervals (the same rounding as the gap count) stands for what is left after
+ * them, so rows and gaps together cover the record's span once.
+ */
+function rowHoursOf(utc: Float64Array, step: number): Float64Array {
+  const hours = new Float64Array(utc.length);
+  for (let i = 0; i < utc.length; i++) {
+    const d = i + 1 < utc.length ? utc[i + 1]! - utc[i]! : step;
+    const missing = Math.max(0, Math.round(d / step) - 1);
+    hours[i] = (d - missing * step) / 3_600_000;
+  }
+  return hours;
 }
 
 /**
@@ -157,6 +180,7 @@ export function checkIntervalSequence(raw: RawIntervals, fill: GapFill = 'none')
     values: outValues,
     intervalMs: step,
     filled,
+    rowHours: irregularSteps ? rowHoursOf(outUtc, step) : null,
     report: {
       rowsRead: raw.count,
       intervalSeconds: step / 1000,

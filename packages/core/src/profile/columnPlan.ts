@@ -32,6 +32,11 @@ export interface ColumnTarget {
   readonly loads: readonly number[];
   /** Data-column index (0 = first column after the time) of each quantity given. */
   readonly columns: Partial<Record<Quantity, number>>;
+  /**
+   * A metered phase only: the rated power factor of the board file's loads on that phase, which a kW column
+   * alone is taken at (null: the file has no load drawing power there, so PF 1), and those loads' names.
+   */
+  readonly phaseRating?: { readonly pf: number | null; readonly tanPhi: number; readonly loads: readonly string[] };
 }
 
 export interface ColumnPlan {
@@ -45,6 +50,8 @@ export interface ColumnPlan {
   readonly undrivenAtRating: boolean;
   /** Loads at their rating in every interval whatever the options (capacitor banks the file lists in service). @defaultValue none */
   readonly inService?: readonly number[];
+  /** How columns that leave something to the model were read (a phase in kW alone, a group's shares), a sentence each. @defaultValue none */
+  readonly notes?: readonly string[];
 }
 
 const HEADER = /^(.+?)\s*\[\s*([A-Za-z]+)\s*\]$/;
@@ -142,7 +149,7 @@ export function planColumns(board: Board, header: readonly string[], options: Co
 export function planTargets(header: readonly string[], ownLoads: number, resolver: TargetResolver, options: ColumnPlanOptions = {}): Omit<ColumnPlan, 'board'> {
   const issues: InputIssue[] = [];
   const inService = new Set(options.inService ?? []);
-  if (header.length < 2) throw new InputError([inputIssue('missing', 'header', 'a time column and at least one data column')], 'the interval data cannot be read');
+  if (header.length < 2) throw new InputError([headerSeparatorIssue(header)], 'the interval data cannot be read');
   const byName = new Map<string, { kind: ColumnTarget['kind']; loads: number[]; columns: Partial<Record<Quantity, number>> }>();
   const { loads } = resolver;
   header.slice(1).forEach((raw, c) => {
@@ -185,7 +192,7 @@ export function planTargets(header: readonly string[], ownLoads: number, resolve
       if (other) issues.push(inputIssue('driven_twice', `header (${quoteText(name)})`, `each load driven by one column target; ${quoteText(loads[l]!.name)} is also in ${quoteText(other)}`, name));
       drivenBy.set(l, name);
     }
-    targets.push({ name, kind: t.kind, loads: t.loads, columns: t.columns });
+    targets.push({ name, kind: t.kind, loads: t.loads, columns: t.columns, ...(t.kind === 'phase' ? { phaseRating: phaseRatingOf(t.loads[0]!, ownLoads, loads, resolver, inService) } : {}) });
   }
   const undriven = loads
     .slice(0, ownLoads)
@@ -196,10 +203,28 @@ export function planTargets(header: readonly string[], ownLoads: number, resolve
     timeHeader: header[0]!.trim(),
     dataHeaders: header.slice(1).map((h) => h.trim()),
     targets,
-    undriven: undriven.map((i) => loads[i]!.name),
+    // A load wholly on metered phases is in their totals, not off: it is left out of the loads with no column.
+    undriven: undriven.filter((i) => !inMeteredTotals(i, targets, loads, resolver)).map((i) => loads[i]!.name),
     undrivenAtRating: options.undrivenAtRating ?? false,
+    notes: columnNotes(targets, loads),
     ...(inService.size ? { inService: [...inService] } : {}),
   };
+}
+
+/**
+ * A header of one cell: where that cell holds a semicolon or a tab (a spreadsheet's export in a locale that writes
+ * the decimal comma), the separator is the fault, and the issue says so; otherwise the columns are missing.
+ */
+function headerSeparatorIssue(header: readonly string[]): InputIssue {
+  const cell = header[0] ?? '';
+  const found = cell.includes(';') ? 'semicolons' : cell.includes('\t') ? 'tabs' : null;
+  if (!found) return inputIssue('missing', 'header', 'a time column and at least one data column');
+  return inputIssue(
+    'bad_separator',
+    'header',
+    `columns separated by commas, with a point for decimals (1.25): the header's columns are separated by ${found}; export the file as comma-separated values`,
+    cell,
+  );
 }
 
 /**
@@ -241,28 +266,108 @@ function countedTwiceIssues(targets: readonly ColumnTarget[], loads: readonly Bo
   return issues;
 }
 
+/**
+ * The rated power of the file's own loads on a metered load's phase (same board, banks in service aside): a branch from that phase
+ * to the neutral whole, a line-to-line branch half (its power is drawn through two lines). A metered phase
+ * given in kW alone is taken at this power factor: the loads there are what the meter sees, and PF 1 would
+ * hide their reactive power from the currents, the power factor and the bank.
+ */
+function phaseRatingOf(metered: number, ownLoads: number, loads: readonly BoardLoad[], resolver: TargetResolver, inService: ReadonlySet<number>): NonNullable<ColumnTarget['phaseRating']> {
+  const phase = loads[metered]!.branches[0]!.from;
+  const boardOf = (l: number) => resolver.boardOf?.(l) ?? 0;
+  let p = 0;
+  let q = 0;
+  const names: string[] = [];
+  for (let l = 0; l < ownLoads; l++) {
+    // A bank the file lists in service is solved at its rating beside the total, so its kvar is not the meter's share.
+    if (boardOf(l) !== boardOf(metered) || inService.has(l)) continue;
+    let on = false;
+    let whole = true;
+    for (const b of loads[l]!.branches) {
+      if (b.from !== phase && b.to !== phase) {
+        whole = false;
+        continue;
+      }
+      const share = b.to === 'N' || b.from === 'N' ? 1 : 0.5;
+      whole &&= share === 1;
+      p += share * b.sNominal.re;
+      q += share * b.sNominal.im;
+      on = true;
+    }
+    // A load across phases is in the total only for its part on this one (the rest of it is off or driven elsewhere).
+    if (on) names.push(whole ? loads[l]!.name : `part of ${loads[l]!.name}`);
+  }
+  if (!(p > 0)) return { pf: null, tanPhi: 0, loads: names };
+  return { pf: p / Math.hypot(p, q), tanPhi: q / p, loads: names };
+}
+
+/** Whether every phase a load draws from is a metered phase total on its board. */
+function inMeteredTotals(load: number, targets: readonly ColumnTarget[], loads: readonly BoardLoad[], resolver: TargetResolver): boolean {
+  const boardOf = (l: number) => resolver.boardOf?.(l) ?? 0;
+  const metered = new Set(targets.filter((t) => t.kind === 'phase' && boardOf(t.loads[0]!) === boardOf(load)).map((t) => loads[t.loads[0]!]!.branches[0]!.from));
+  if (!metered.size) return false;
+  const phases = loads[load]!.branches.flatMap((b) => [b.from, b.to]).filter((x) => x !== 'N');
+  return phases.length > 0 && phases.every((x) => metered.has(x));
+}
+
+/**
+ * The sentences that say how a column was read where the file leaves it to the model: a metered phase in
+ * kW alone (at which power factor, and why), and how a group's kW, kvar or current is shared among loads of
+ * unlike power factors.
+ */
+function columnNotes(targets: readonly ColumnTarget[], loads: readonly BoardLoad[]): string[] {
+  const notes: string[] = [];
+  const pfWords = (pf: number, tanPhi: number) => `PF ${pf.toFixed(3)} ${tanPhi < 0 ? 'leading' : 'lagging'}`;
+  for (const t of targets) {
+    if (t.kind === 'phase' && kwAlone(t) && t.phaseRating) {
+      const r = t.phaseRating;
+      const give = `give ${quoteText(`${t.name} [kvar]`)} or ${quoteText(`${t.name} [pf]`)} where the meter records it`;
+      notes.push(
+        r.pf === null
+          ? `${quoteText(`${t.name} [kW]`)} has no kvar or pf column and the board file has no load drawing power on that phase: taken at PF 1; ${give}`
+          : `${quoteText(`${t.name} [kW]`)} has no kvar or pf column: taken at ${r.pf > 0.99995 ? 'PF 1' : pfWords(r.pf, r.tanPhi)}, the rated power factor of the board file's loads on that phase (${r.loads.join(', ')}); ${give}`,
+      );
+    }
+    if (t.kind !== 'group' || t.loads.length < 2 || t.columns.x !== undefined) continue;
+    const rated = t.loads.map((l) => ratedPower(loads[l]!));
+    // Loads alike in power factor share alike whichever way: only a mix is worth a sentence.
+    const tan = rated.map((r) => (r.re !== 0 ? r.im / r.re : Number.NaN));
+    if (tan.every((x) => Math.abs(x - tan[0]!) <= 1e-9)) continue;
+    const given = QUANTITIES.filter((q) => t.columns[q] !== undefined).map((q) => `[${q}]`).join(' and ');
+    const byKw = kwShares(rated) !== null;
+    notes.push(
+      byKw
+        ? `${quoteText(t.name)} ${given} is shared among its ${t.loads.length} loads in proportion to their rated kW${kwAlone(t) ? ', each at its own rated power factor' : ', all at the power factor the columns give'}`
+        : `${quoteText(t.name)} ${given} is shared among its ${t.loads.length} loads in proportion to their rated kVA, all at the power factor ${kwAlone(t) ? "of the group's rating" : 'the columns give'} (their rated kW, of both signs or none, give no share)`,
+    );
+  }
+  return notes;
+}
+
 const isPhaseToNeutral = (load: BoardLoad) => load.branches.length === 1 && load.branches[0]!.to === 'N';
 
 export const ratedPower = (load: BoardLoad): ComplexValue =>
   load.branches.reduce((s, b) => ({ re: s.re + b.sNominal.re, im: s.im + b.sNominal.im }), { re: 0, im: 0 });
 
 /**
- * The batch drivers of a plan: per target, either a scale factor on each load's
- * rating (x) or a complex total P + jQ (every other column set; see
- * driverColumns) shared by the loads in proportion to their rated kVA.
+ * The batch drivers of a plan: per target, either a scale factor on each load's rating (x) or a complex
+ * total P + jQ (every other column set; see driverColumns) shared by the loads in proportion to their
+ * rated kW. With kW alone the driver is P and each load's coefficient is its own rating ÷ the target's
+ * rated kW, so every load keeps its own rated tan φ (a heater at PF 1 in a group with a motor draws no
+ * kvar, and a group at its rated kW is the board at rating). Where the loads' rated kW do not give a
+ * share (none, or of both signs) they share by rated kVA, the old way, at the target's mean tan φ.
  * Loads kept at rating get one constant driver at the end.
  */
 export function planDrivers(plan: ColumnPlan): DriverSpec[] {
   checkObjectArgument(plan, 'plan', 'a column plan from planColumns(...)', ['board', 'targets']);
   const { board } = plan;
   const drivers: DriverSpec[] = plan.targets.map((t) => {
-    if (t.columns.x !== undefined) return { name: t.name, loads: t.loads.map((l) => ({ load: l, coefficient: ratedPower(board.loads[l]!) })) };
-    const kva = t.loads.map((l) => Math.hypot(ratedPower(board.loads[l]!).re, ratedPower(board.loads[l]!).im));
-    const total = kva.reduce((a, b) => a + b, 0);
-    return {
-      name: t.name,
-      loads: t.loads.map((l, k) => ({ load: l, coefficient: { re: total > 0 ? kva[k]! / total : 1 / t.loads.length, im: 0 } })),
-    };
+    const rated = t.loads.map((l) => ratedPower(board.loads[l]!));
+    if (t.columns.x !== undefined) return { name: t.name, loads: t.loads.map((l, k) => ({ load: l, coefficient: rated[k]! })) };
+    const byKw = kwShares(rated);
+    if (byKw && t.kind !== 'phase' && kwAlone(t)) return { name: t.name, loads: t.loads.map((l, k) => ({ load: l, coefficient: { re: byKw[k]!, im: (byKw[k]! * rated[k]!.im) / rated[k]!.re || 0 } })) };
+    const shares = byKw ?? kvaShares(rated);
+    return { name: t.name, loads: t.loads.map((l, k) => ({ load: l, coefficient: { re: shares[k]!, im: 0 } })) };
   });
   if (plan.undrivenAtRating) {
     const rest = plan.undriven.map((name) => board.loads.findIndex((l) => l.name === name));
@@ -272,10 +377,29 @@ export function planDrivers(plan: ColumnPlan): DriverSpec[] {
   return drivers;
 }
 
+/** A target given in kW alone (no kvar, pf or A beside it). */
+const kwAlone = (t: ColumnTarget) => t.columns.kW !== undefined && t.columns.kvar === undefined && t.columns.pf === undefined;
+
+/** Each load's share of the rated kW, or null where the rated kW give none (all 0, or of both signs). */
+function kwShares(rated: readonly ComplexValue[]): number[] | null {
+  const total = rated.reduce((s, r) => s + r.re, 0);
+  if (rated.some((r) => r.re < 0) && rated.some((r) => r.re > 0)) return null;
+  return total !== 0 ? rated.map((r) => r.re / total) : null;
+}
+
+/** Each load's share of the rated kVA, or equal shares where every rating is 0. */
+function kvaShares(rated: readonly ComplexValue[]): number[] {
+  const kva = rated.map((r) => Math.hypot(r.re, r.im));
+  const total = kva.reduce((a, b) => a + b, 0);
+  return kva.map((x) => (total > 0 ? x / total : 1 / rated.length));
+}
+
 /**
  * Per-interval driver values from the table's columns, in planDrivers' order:
- * x as it is; kW alone with the target's rated tan φ (unity for a metered
- * phase); kW + kvar; kW + pf (negative pf = leading); A + pf with apparent
+ * x as it is; kW alone as P, each load
+ * then at its own rated tan φ through planDrivers' coefficients (a metered phase at the rated tan φ of
+ * the file's loads on that phase, ColumnTarget.phaseRating; where the loads' kW give no share, the
+ * target's mean rated tan φ); kW + kvar; kW + pf (negative pf = leading); A + pf with apparent
  * power = A × nominal line-to-neutral voltage.
  */
 export function driverColumns(plan: ColumnPlan, values: readonly Float64Array[], count: number): DriverColumns {
@@ -294,8 +418,10 @@ export function driverColumns(plan: ColumnPlan, values: readonly Float64Array[],
     const kvar = col('kvar');
     const pf = col('pf');
     const amps = col('A');
-    const rated = t.loads.reduce((s, l) => ({ re: s.re + ratedPower(plan.board.loads[l]!).re, im: s.im + ratedPower(plan.board.loads[l]!).im }), { re: 0, im: 0 });
-    const tanRated = rated.re !== 0 ? rated.im / rated.re : 0;
+    const ratings = t.loads.map((l) => ratedPower(plan.board.loads[l]!));
+    const rated = ratings.reduce((s, r) => ({ re: s.re + r.re, im: s.im + r.im }), { re: 0, im: 0 });
+    // kW alone: the Q a driver must carry itself (the loads' coefficients carry it where their kW share it out).
+    const tanRated = t.kind === 'phase' ? (t.phaseRating?.tanPhi ?? 0) : kwShares(ratings) ? 0 : rated.re !== 0 ? rated.im / rated.re : 0;
     for (let i = 0; i < count; i++) {
       if (x) r[i] = x[i]!;
       else if (kW && kvar) {

@@ -40,6 +40,8 @@ export interface MonthlyInput {
   /** Local wall-clock ms of each interval (for demand windows). */
   readonly localMs: Float64Array;
   readonly intervalMs: number;
+  /** The hours each interval stands for, where rows are not all one interval apart. @defaultValue every row one interval */
+  readonly rowHours?: Float64Array | null;
   /** Board totals per interval, W and var (load convention). */
   readonly totalW: Float64Array;
   readonly totalVar: Float64Array;
@@ -48,7 +50,8 @@ export interface MonthlyInput {
 const monthLabel = (key: number) => `${Math.floor(key / 12)}-${String((key % 12) + 1).padStart(2, '0')}`;
 
 export function billMonths(input: MonthlyInput, tariff: TariffSpec | undefined): MonthReading[] {
-  const hoursPer = input.intervalMs / 3_600_000;
+  const hoursEach = input.intervalMs / 3_600_000;
+  const rowHours = input.rowHours ?? null;
   const windowMs = (tariff?.demand?.windowMinutes ?? PROFILE_DEFAULTS.demandWindowMinutes) * 60_000;
   const out: MonthReading[] = [];
   let i = 0;
@@ -59,9 +62,10 @@ export function billMonths(input: MonthlyInput, tariff: TariffSpec | undefined):
     let lag = 0;
     let lead = 0;
     let n = 0;
+    let hours = 0;
     let peak = 0;
     let peakAt = input.utcMs[i]!;
-    // Demand windows aligned to the local clock; a window's kVA is from its mean P and mean Q.
+    // Demand windows aligned to the local clock; a window's kVA is from its mean P and mean Q over the time its rows cover.
     let window = Math.floor(input.localMs[i]! / windowMs);
     let wp = 0;
     let wq = 0;
@@ -76,6 +80,7 @@ export function billMonths(input: MonthlyInput, tariff: TariffSpec | undefined):
       }
     };
     for (; i < input.count && input.monthKey[i] === key; i++) {
+      const hoursPer = rowHours ? rowHours[i]! : hoursEach;
       const p = input.totalW[i]! * hoursPer / 1000;
       const q = input.totalVar[i]! * hoursPer / 1000;
       if (p >= 0) kWhImport += p;
@@ -83,6 +88,7 @@ export function billMonths(input: MonthlyInput, tariff: TariffSpec | undefined):
       if (q >= 0) lag += q;
       else lead -= q;
       n++;
+      hours += hoursPer;
       const w = Math.floor(input.localMs[i]! / windowMs);
       if (w !== window) {
         closeWindow();
@@ -90,9 +96,11 @@ export function billMonths(input: MonthlyInput, tariff: TariffSpec | undefined):
         wp = wq = wn = 0;
         wStart = input.utcMs[i]!;
       }
-      wp += input.totalW[i]!;
-      wq += input.totalVar[i]!;
-      wn++;
+      // Weighted by the rows' hours only where they differ: regular rows keep the plain mean to the bit.
+      const weight = rowHours ? hoursPer : 1;
+      wp += input.totalW[i]! * weight;
+      wq += input.totalVar[i]! * weight;
+      wn += weight;
     }
     closeWindow();
     const billingPf = billingPowerFactor(kWhImport, lag);
@@ -100,7 +108,7 @@ export function billMonths(input: MonthlyInput, tariff: TariffSpec | undefined):
     const chargeable = reactive ? Math.max(0, lag - reactive.tanPhiAllowance * kWhImport) : null;
     out.push({
       month: monthLabel(key),
-      hours: n * hoursPer,
+      hours: rowHours ? hours : n * hoursEach,
       kWhImport,
       kWhExport,
       kvarhLagging: lag,

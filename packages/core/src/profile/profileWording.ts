@@ -114,8 +114,37 @@ export function intervalSequenceWords(s: SequenceReport, fillOption = true): str
   if (s.duplicates.count)
     words.push(`${s.duplicates.count} repeated time${s.duplicates.count === 1 ? '' : 's'}: the first reading kept (row${s.duplicates.rows.length === 1 ? '' : 's'} ${s.duplicates.rows.join(', ')}${s.duplicates.count > s.duplicates.rows.length ? ', ...' : ''})`);
   if (s.ambiguousTimes) words.push(`${s.ambiguousTimes} wall-clock times fall in the repeated hour when clocks go back: placed in row order`);
-  if (s.irregularSteps) words.push(s.irregularSteps === 1 ? 'one step between rows is not a whole number of intervals' : `${s.irregularSteps} steps between rows are not a whole number of intervals`);
+  if (s.irregularSteps)
+    words.push(
+      `${s.irregularSteps === 1 ? 'one step' : `${count(s.irregularSteps)} steps`} between rows ${s.irregularSteps === 1 ? 'is' : 'are'} not a whole number of intervals: each row counts for the time from its stamp to the next row (the last row one interval), so energy, hours and demand follow the clock, not the row count`,
+    );
   return words;
+}
+
+/**
+ * Above this share of made-up intervals the record is more fill than reading: a held or interpolated value
+ * repeats one moment for hours or days, and its energy, hours and demand outweigh what the meter saw.
+ * A tenth: past it the fill can move the energy by more than a meter's own error of a few percent and
+ * change the month's peak (common practice, no source).
+ */
+export const MADE_UP_SHARE_WARNING = 0.1;
+
+/**
+ * The gap fill made up more than MADE_UP_SHARE_WARNING of the intervals: a warning with the counts (made up
+ * and read) and the longest gap; none otherwise. `trivar profile` and the report print it with the others.
+ */
+export function madeUpIntervalsWarnings(s: SequenceReport | null | undefined): string[] {
+  if (!s || s.fill === 'none' || s.filledIntervals <= 0) return [];
+  const read = s.rowsRead - s.duplicates.count;
+  const total = read + s.filledIntervals;
+  const share = s.filledIntervals / total;
+  if (share <= MADE_UP_SHARE_WARNING) return [];
+  const longest = s.gaps.longest[0];
+  const span = longest ? (longest.missingIntervals * s.intervalSeconds) / 3600 : 0;
+  const spanWords = span >= 48 ? `${(span / 24).toFixed(1)} days` : `${span < 10 ? span.toFixed(2) : span.toFixed(1)} h`;
+  return [
+    `${groupDigits(s.filledIntervals)} of the ${groupDigits(total)} intervals (${(share * 100).toFixed(1)} %) are made up by the gap fill (${s.fill === 'hold' ? 'the last reading held' : 'linear interpolation'}) and ${groupDigits(read)} were read${longest ? `; the longest gap is ${spanWords}` : ''}: above ${MADE_UP_SHARE_WARNING * 100} % made up, every energy, hour, demand and bank figure leans on invented readings; fill only short gaps, or study the stretches that were read`,
+  ];
 }
 
 /**

@@ -28,7 +28,7 @@ import { switchBank } from './simulateBank.js';
 import { recordInterval, type IntervalFigures } from './solveBatch.js';
 import { profileClock, resolveLimits, type ProfileBankResult, type ProfileStudyOptions } from './studyProfile.js';
 import { summariseFigures, type ProfileSummary, type ResolvedLimits, type SummaryContext } from './summariseFigures.js';
-import { neutralOverLimitWarnings, PROFILE_CAUTIONS, type NoBankSized } from './profileWording.js';
+import { madeUpIntervalsWarnings, neutralOverLimitWarnings, PROFILE_CAUTIONS, type NoBankSized } from './profileWording.js';
 import { clearRoundOff, conductorFloorA } from './intervalRoundOff.js';
 import { listedBanksInService, type ListedBankInService } from '../analysis/banksInServiceWords.js';
 
@@ -41,8 +41,12 @@ export interface InstallationProfileInput {
   readonly columns: DriverColumns;
   readonly utcMs: Float64Array;
   readonly intervalMs: number;
+  /** The hours each interval stands for where rows are not all one interval apart (IntervalTable.rowHours). @defaultValue every row one interval */
+  readonly rowHours?: Float64Array | null;
   readonly sequence?: SequenceReport;
   readonly undriven?: { readonly loads: readonly string[]; readonly atRating: boolean };
+  /** How columns were read where the file leaves it to the model (ColumnPlan.notes). @defaultValue none */
+  readonly columnNotes?: readonly string[];
   readonly profile?: ProfileSpec;
   /** The file's bank in service on the bank's board, taken out of `installation` for the bank studied (see withoutBankOn). */
   readonly replacedBank?: ListedBankInService;
@@ -88,6 +92,8 @@ export interface InstallationProfileResult {
   readonly intervals: { readonly count: number; readonly intervalSeconds: number; readonly first: string; readonly last: string };
   readonly sequence: SequenceReport | null;
   readonly undriven: { readonly loads: readonly string[]; readonly atRating: boolean } | null;
+  /** How columns were read where the file leaves it to the model: a phase in kW alone, a group's shares (a sentence each). */
+  readonly columnNotes: readonly string[];
   /** The banks the file lists in service (harmonics.banks), as listed in every interval. */
   readonly banksInService: readonly ListedBankInService[];
   /** The file's bank on the studied bank's board, left out: the bank studied takes its place. */
@@ -148,7 +154,7 @@ export function studyInstallationProfile(input: InstallationProfileInput, option
     // profile.limits hold for every board but the neutral threshold, which is the main board's; a sub-board's
     // neutral is judged against its feeder's neutral rating. The tariff prices the supply only.
     const spec = b === 0 || !input.profile?.limits?.neutralA ? input.profile : { ...input.profile, limits: { ...input.profile.limits, neutralA: undefined } };
-    return { board, utcMs: input.utcMs, localMs, monthKey, intervalMs: input.intervalMs, limits: resolveLimits(board, spec), tariff: b === 0 ? input.profile?.tariff : undefined, label, labelUtc };
+    return { board, utcMs: input.utcMs, localMs, monthKey, intervalMs: input.intervalMs, rowHours: input.rowHours ?? null, limits: resolveLimits(board, spec), tariff: b === 0 ? input.profile?.tariff : undefined, label, labelUtc };
   });
   const before = allocateBoardFigures(installation, n);
   const net = compileInstallationBatch(installation, input.loads, input.loadBoards, input.drivers);
@@ -187,6 +193,7 @@ export function studyInstallationProfile(input: InstallationProfileInput, option
       before: before[bankAt]!,
       ...(meterBefore ? { meterBefore } : {}),
       intervalMs: input.intervalMs,
+      rowHours: input.rowHours ?? null,
       label,
       ...(input.profile ? { profile: input.profile } : {}),
       summarise: (f) => summariseFigures(f, contexts[bankAt]!),
@@ -234,6 +241,7 @@ export function studyInstallationProfile(input: InstallationProfileInput, option
     intervals: { count: n, intervalSeconds: input.intervalMs / 1000, first: label(0), last: label(n - 1) },
     sequence: input.sequence ?? null,
     undriven: input.undriven ?? null,
+    columnNotes: input.columnNotes ?? [],
     banksInService: listedBanksInService(installation),
     replacedBank: input.replacedBank ?? null,
     boards: boardResults,
@@ -246,7 +254,7 @@ export function studyInstallationProfile(input: InstallationProfileInput, option
       : null,
     bankNotSized: outcome && 'notSized' in outcome ? { board: names[bankAt]!, ...outcome.notSized } : null,
     // profile.limits.neutralA is the main board's limit; a sub-board's neutral is judged against its rating.
-    warnings: boardResults.flatMap((r, b) => neutralOverLimitWarnings(r.before, b === 0 && input.profile?.limits?.neutralA !== undefined, r.board)),
+    warnings: [...madeUpIntervalsWarnings(input.sequence), ...boardResults.flatMap((r, b) => neutralOverLimitWarnings(r.before, b === 0 && input.profile?.limits?.neutralA !== undefined, r.board))],
     cautions: PROFILE_CAUTIONS,
   };
   const meterFigures = withBank && meter && meterBefore && meterAfter ? { point: meter.point, before: meterBefore, after: meterAfter as IntervalFigures } : null;

@@ -19,7 +19,7 @@ import { bankOverProfile } from './bankOverProfile.js';
 import { allocateFigures, solveBatch, type BatchSolveOptions, type IntervalFigures } from './solveBatch.js';
 import { summariseFigures, type ProfileSummary, type ResolvedLimits, type SummaryContext } from './summariseFigures.js';
 import { createZoneClock, monthKeyOf } from './zoneClock.js';
-import { neutralOverLimitWarnings, PROFILE_CAUTIONS, type NoBankSized } from './profileWording.js';
+import { madeUpIntervalsWarnings, neutralOverLimitWarnings, PROFILE_CAUTIONS, type NoBankSized } from './profileWording.js';
 import { assertProfileInput } from '../board/modelGuards.js';
 import { judgedNominalOf } from '../board/nominalVoltages.js';
 
@@ -30,8 +30,12 @@ export interface ProfileStudyInput {
   readonly columns: DriverColumns;
   readonly utcMs: Float64Array;
   readonly intervalMs: number;
+  /** The hours each interval stands for where rows are not all one interval apart (IntervalTable.rowHours). @defaultValue every row one interval */
+  readonly rowHours?: Float64Array | null;
   readonly sequence?: SequenceReport;
   readonly undriven?: { readonly loads: readonly string[]; readonly atRating: boolean };
+  /** How columns were read where the file leaves it to the model (ColumnPlan.notes). @defaultValue none */
+  readonly columnNotes?: readonly string[];
   readonly profile?: ProfileSpec;
   /** Per-interval figures already solved (e.g. by worker threads); solved here when absent. */
   readonly before?: IntervalFigures;
@@ -136,6 +140,8 @@ export interface ProfileResult {
   readonly intervals: { readonly count: number; readonly intervalSeconds: number; readonly first: string; readonly last: string };
   readonly sequence: SequenceReport | null;
   readonly undriven: { readonly loads: readonly string[]; readonly atRating: boolean } | null;
+  /** How columns were read where the file leaves it to the model: a phase in kW alone, a group's shares (a sentence each). */
+  readonly columnNotes: readonly string[];
   readonly limits: ResolvedLimits;
   readonly before: ProfileSummary;
   readonly bank: ProfileBankResult | null;
@@ -192,17 +198,21 @@ export interface BelowTarget {
 /**
  * See ProfileBankResult.belowTarget: board totals, import only; a step's kvar taken at nominal voltage.
  * `connectedKvar` is the switched kvar in each interval, `totalKvar` all the steps together; `upperPf` null
- * for a controller without an upper limit.
+ * for a controller without an upper limit; `rowHours` the hours each interval stands for where rows are not
+ * all one interval apart (IntervalTable.rowHours).
  */
 export function hoursBelowTarget(
   f: IntervalFigures,
   settings: { readonly targetPf: number; readonly upperPf: number | null; readonly responseShare: number },
   bank: { readonly smallestKvar: number; readonly totalKvar: number; readonly connectedKvar: Float64Array | null },
   intervalMs: number,
+  rowHours: Float64Array | null = null,
 ): BelowTarget {
   const tanTarget = Math.tan(Math.acos(settings.targetPf));
   const tanUpper = settings.upperPf === null ? null : Math.tan(Math.acos(Math.min(1, settings.upperPf)));
   const threshold = settings.responseShare * bank.smallestKvar * 1000;
+  const h = intervalMs / 3_600_000;
+  // Counted in intervals (each row's share of one where rows are irregular), then made hours.
   let below = 0;
   let allIn = 0;
   let under = 0;
@@ -215,12 +225,12 @@ export function hoursBelowTarget(
       q += f.phaseVar[k]![i]!;
     }
     if (w <= 0 || q <= w * tanTarget) continue;
-    below++;
-    if (bank.connectedKvar && bank.connectedKvar[i]! >= bank.totalKvar - 1e-9) allIn++;
-    else if (tanUpper !== null && q - bank.smallestKvar * 1000 < w * tanUpper) coarse++;
-    else if (q - w * tanTarget <= threshold) under++;
+    const each = rowHours ? rowHours[i]! / h : 1;
+    below += each;
+    if (bank.connectedKvar && bank.connectedKvar[i]! >= bank.totalKvar - 1e-9) allIn += each;
+    else if (tanUpper !== null && q - bank.smallestKvar * 1000 < w * tanUpper) coarse += each;
+    else if (q - w * tanTarget <= threshold) under += each;
   }
-  const h = intervalMs / 3_600_000;
   return { hours: below * h, allStepsInHours: allIn * h, underResponseHours: under * h, stepTooCoarseHours: coarse * h };
 }
 
@@ -254,6 +264,7 @@ export function studyProfile(input: ProfileStudyInput, options: ProfileStudyOpti
     localMs,
     monthKey,
     intervalMs: input.intervalMs,
+    rowHours: input.rowHours ?? null,
     limits,
     tariff: input.profile?.tariff,
     label,
@@ -283,6 +294,7 @@ export function studyProfile(input: ProfileStudyInput, options: ProfileStudyOpti
       board,
       before,
       intervalMs: input.intervalMs,
+      rowHours: input.rowHours ?? null,
       label,
       ...(input.profile ? { profile: input.profile } : {}),
       summarise: (f) => summariseFigures(f, ctx),
@@ -306,11 +318,12 @@ export function studyProfile(input: ProfileStudyInput, options: ProfileStudyOpti
     intervals: { count: n, intervalSeconds: input.intervalMs / 1000, first: label(0), last: label(n - 1) },
     sequence: input.sequence ?? null,
     undriven: input.undriven ?? null,
+    columnNotes: input.columnNotes ?? [],
     limits,
     before: beforeSummary,
     bank,
     bankNotSized: withBank && 'notSized' in withBank ? withBank.notSized : null,
-    warnings: neutralOverLimitWarnings(beforeSummary, input.profile?.limits?.neutralA !== undefined),
+    warnings: [...madeUpIntervalsWarnings(input.sequence), ...neutralOverLimitWarnings(beforeSummary, input.profile?.limits?.neutralA !== undefined)],
     cautions: PROFILE_CAUTIONS,
   };
   return { result, utcMs: input.utcMs, before, after, connectedKvar, label, nominalLineToNeutralV: judgedNominalOf(board).ln };

@@ -99,6 +99,11 @@ export interface SummaryContext {
   readonly localMs: Float64Array;
   readonly monthKey: Int32Array;
   readonly intervalMs: number;
+  /**
+   * The hours each interval stands for where rows are not all one interval apart (IntervalTable.rowHours):
+   * every hour, energy and demand figure weighs each row by it. @defaultValue every row one interval
+   */
+  readonly rowHours?: Float64Array | null;
   readonly limits: ResolvedLimits;
   readonly tariff: TariffSpec | undefined;
   /** Wall-clock label of interval i. */
@@ -116,6 +121,14 @@ export function summariseFigures(f: IntervalFigures, ctx: SummaryContext): Profi
   const { board, limits } = ctx;
   const n = f.count;
   const h = ctx.intervalMs / 3_600_000;
+  const rowHours = ctx.rowHours ?? null;
+  const hoursAt = (i: number) => (rowHours ? rowHours[i]! : h);
+  const hoursWhere = (predicate: (i: number) => boolean) => {
+    if (!rowHours) return countWhere(n, predicate) * h;
+    let sum = 0;
+    for (let i = 0; i < n; i++) if (predicate(i)) sum += rowHours[i]!;
+    return sum;
+  };
   const conductor = (name: string, x: Float64Array, rating: number | null): ConductorSummary => {
     const max = maximumOf(x);
     const [p95, p99] = percentilesOf(x, [0.95, 0.99]);
@@ -128,7 +141,7 @@ export function summariseFigures(f: IntervalFigures, ctx: SummaryContext): Profi
       p99A: p99!.value,
       p99At: ctx.label(p99!.index),
       ratingA: rating,
-      hoursAboveLimit: rating === null ? null : countWhere(n, (i) => x[i]! > rating) * h,
+      hoursAboveLimit: rating === null ? null : hoursWhere((i) => x[i]! > rating),
     };
   };
   const conductors = board.phases.map((p, k) => conductor(p, f.lineA[k]!, lineRatingOf(board, k)));
@@ -160,12 +173,12 @@ export function summariseFigures(f: IntervalFigures, ctx: SummaryContext): Profi
       if (percent > hi) hi = percent;
     }
     // The board verdict's judgement (beyond round-off), so an interval counted here is one a solve of it calls outside.
-    if (belowBandEdge(lo, limits.voltageLowPercent)) low++;
-    if (aboveBandEdge(hi, limits.voltageHighPercent)) high++;
+    if (belowBandEdge(lo, limits.voltageLowPercent)) low += hoursAt(i);
+    if (aboveBandEdge(hi, limits.voltageHighPercent)) high += hoursAt(i);
     // A collapse is a phase below half its nominal (the supply's rule), whichever voltages are judged.
     let phaseLow = Number.POSITIVE_INFINITY;
     for (const col of f.phaseV) if (col[i]! < phaseLow) phaseLow = col[i]!;
-    if (phaseLow < collapseV) collapsed++;
+    if (phaseLow < collapseV) collapsed += hoursAt(i);
   }
   const totalW = new Float64Array(n);
   const totalVar = new Float64Array(n);
@@ -177,11 +190,12 @@ export function summariseFigures(f: IntervalFigures, ctx: SummaryContext): Profi
   let peakVA = 0;
   for (let i = 0; i < n; i++) peakVA = Math.max(peakVA, Math.hypot(totalW[i]!, totalVar[i]!));
   const varFloor = ROUND_OFF_VAR * peakVA;
-  const months = billMonths({ count: n, utcMs: ctx.utcMs, monthKey: ctx.monthKey, localMs: ctx.localMs, intervalMs: ctx.intervalMs, totalW, totalVar }, ctx.tariff);
+  const months = billMonths({ count: n, utcMs: ctx.utcMs, monthKey: ctx.monthKey, localMs: ctx.localMs, intervalMs: ctx.intervalMs, rowHours, totalW, totalVar }, ctx.tariff);
   const sumOf = (pick: (m: MonthReading) => number) => months.reduce((s, m) => s + pick(m), 0);
   const kWhImport = sumOf((m) => m.kWhImport);
   const kvarhLagging = sumOf((m) => m.kvarhLagging);
-  const sumCol = (x: Float64Array) => x.reduce((s, v) => s + v, 0);
+  // Σ x·hours: energy of a column of W or var, in Wh or varh.
+  const sumCol = (x: Float64Array) => (rowHours ? x.reduce((s, v, i) => s + v * rowHours[i]!, 0) : x.reduce((s, v) => s + v, 0) * h);
   // The region's index: |V2|/|V1| (IEC), or the line-to-line deviation from the average (ANSI C84.1).
   const unbalanceColumn = limits.unbalance.index === 'negative-sequence' ? f.unbalancePercent : f.lineDeviationPercent;
   const worst = (i: number): WorstInterval => ({
@@ -195,29 +209,29 @@ export function summariseFigures(f: IntervalFigures, ctx: SummaryContext): Profi
   const threePhase = board.phases.length === 3;
   const vuMax = maximumOf(unbalanceColumn);
   return {
-    hours: n * h,
+    hours: rowHours ? rowHours.reduce((a, b) => a + b, 0) : n * h,
     conductors,
     voltages,
-    hoursVoltageLow: low * h,
-    hoursVoltageHigh: high * h,
-    hoursCollapsed: collapsed * h,
+    hoursVoltageLow: low,
+    hoursVoltageHigh: high,
+    hoursCollapsed: collapsed,
     unbalance: threePhase
       ? {
           maxPercent: vuMax.value,
           maxAt: ctx.label(vuMax.index),
           p95Percent: percentilesOf(unbalanceColumn, [0.95])[0]!.value,
-          hoursAbove: countWhere(n, (i) => unbalanceColumn[i]! > limits.unbalancePercent) * h,
+          hoursAbove: hoursWhere((i) => unbalanceColumn[i]! > limits.unbalancePercent),
         }
       : null,
     energy: {
-      phases: board.phases.map((p, k) => ({ phase: p, kWh: (sumCol(f.phaseW[k]!) * h) / 1000, kvarh: (sumCol(f.phaseVar[k]!) * h) / 1000 })),
+      phases: board.phases.map((p, k) => ({ phase: p, kWh: sumCol(f.phaseW[k]!) / 1000, kvarh: sumCol(f.phaseVar[k]!) / 1000 })),
       kWhImport,
       kWhExport: sumOf((m) => m.kWhExport),
       kvarhLagging,
       kvarhLeading: sumOf((m) => m.kvarhLeading),
       billingPf: billingPowerFactor(kWhImport, kvarhLagging),
     },
-    leadingHours: countWhere(n, (i) => totalW[i]! > 0 && totalVar[i]! < -varFloor) * h,
+    leadingHours: hoursWhere((i) => totalW[i]! > 0 && totalVar[i]! < -varFloor),
     months: months.map((m) => ({ ...m, peakAt: ctx.labelUtc(m.peakAtUtcMs) })),
     worstByNeutral: board.hasNeutral ? topIndices(f.neutralA, 5).map(worst) : [],
     worstByLine: topIndices(maxLine, 5).map(worst),

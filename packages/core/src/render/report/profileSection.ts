@@ -40,6 +40,8 @@ interface BoardProfileView {
   readonly timeZone: string;
   /** What the data's sequence showed (gaps, repeated times), where this board's blocks state it; null: stated elsewhere. */
   readonly sequence: ProfileResult['sequence'];
+  /** How columns were read where the file leaves it to the model; absent: stated elsewhere. */
+  readonly columnNotes?: readonly string[];
   readonly limits: ResolvedLimits;
   readonly before: ProfileSummary;
   /** The conductors' caption: where the currents are measured. */
@@ -53,6 +55,9 @@ const unbalanceWords = (u: VoltageUnbalanceLimit) => `${u.name[0]!.toUpperCase()
 /** The data's gaps and repeated times, as `trivar profile` words them. */
 const sequenceFacts = (s: ProfileResult['sequence']): [string, string][] => (s ? [['Interval data', intervalSequenceWords(s, false).join('; ')]] : []);
 
+/** How columns were read where the file leaves it to the model (a phase in kW alone, a group's shares). */
+const columnFacts = (notes: readonly string[] | undefined): [string, string][] => (notes?.length ? [['Columns read', notes.join('; ')]] : []);
+
 function boardBlocks(p: BoardProfileView, charts: readonly ProfileChart[], naming: PhaseNaming, figurePrefix: string): ReportBlock[] {
   const s = p.before;
   const label = labellerOf(naming);
@@ -62,6 +67,7 @@ function boardBlocks(p: BoardProfileView, charts: readonly ProfileChart[], namin
       items: [
         ['Intervals', intervalWords(p)],
         ...sequenceFacts(p.sequence),
+        ...columnFacts(p.columnNotes),
         ['Energy imported / exported', `${fixed(s.energy.kWhImport, 0)} kWh / ${fixed(s.energy.kWhExport, 0)} kWh`],
         ['Reactive energy lagging / leading', `${fixed(s.energy.kvarhLagging, 0)} kvarh / ${fixed(s.energy.kvarhLeading, 0)} kvarh`],
         ['Billing power factor', billingPowerFactorText(s.energy.billingPf)],
@@ -152,6 +158,7 @@ export function installationProfileSections(
       items: [
         ['Intervals', intervalWords(r)],
         ...sequenceFacts(r.sequence),
+        ...columnFacts(r.columnNotes),
         ['Boards', `${r.boards.length}, every board and feeder solved at once in each interval`],
         ...(r.banksInService.length ? [['Capacitor banks in service', `in every interval, ${BANKS_IN_SERVICE_BASIS}: ${r.banksInService.map((b) => bankInServiceWords(b)).join('; ')}`] as [string, string]] : []),
       ],
@@ -187,6 +194,7 @@ export function installationProfileSections(
       }),
     },
     ...charts.overview.map((c): ReportBlock => ({ kind: 'figure', name: `profile-${c.name}`, caption: c.caption, svg: c.svg })),
+    ...(r.warnings.length ? [{ kind: 'list', tone: 'warning', items: r.warnings } as ReportBlock] : []),
   ];
   if (r.bank) {
     overview.push(bankBlock(r.bank, ` on ${r.bank.board}`));
