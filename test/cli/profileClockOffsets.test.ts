@@ -60,8 +60,8 @@ describe('local times across the autumn clock change carry their offset', () => 
     expect(json.before.months[0].peakAtUtcMs).toBe(Date.UTC(2025, 9, 26, 1, 0));
 
     const sum = readFileSync(summary, 'utf8');
-    expect(sum).toContain('peak current at,line A,2025-10-26 02:00+02:00,,local time\n');
-    expect(sum).toContain('peak current at,line B,2025-10-26 02:00+01:00,,local time\n');
+    expect(sum).toContain('peak current at,line A,2025-10-26 02:00+02:00,,local time in Europe/Berlin\n');
+    expect(sum).toContain('peak current at,line B,2025-10-26 02:00+01:00,,local time in Europe/Berlin\n');
     // (1,128 kvarh − 0.5 × 1,510 kWh) × 0.03 = 11.19; 80 kVA × 3 = 240: in the file's currency, not a placeholder.
     expect(sum).toContain('reactive charge,2025-10,11.19,,EUR\n');
     expect(sum).toContain('demand charge,2025-10,240,,EUR\n');
@@ -92,7 +92,9 @@ describe('local times across the autumn clock change carry their offset', () => 
     // The first three hours only: in UTC the repeated 02:00s would be out of order.
     const early = join(dir, 'early.csv');
     writeFileSync(early, readFileSync(data, 'utf8').split('\n').slice(0, 1 + 180).join('\n') + '\n');
-    const json = JSON.parse(runTrivar(['profile', BOARD, '--data', early, '--json']).stdout);
+    const summary = join(dir, 'early-summary.csv');
+    const json = JSON.parse(runTrivar(['profile', BOARD, '--data', early, '--summary-csv', summary, '--json']).stdout);
+    expect(readFileSync(summary, 'utf8')).toContain('peak current at,line A,2025-10-26 02:00,,UTC\n');
     expect(json.intervals.first).toBe('2025-10-26 00:00');
     expect(json.intervals.last).toBe('2025-10-26 02:59');
     expect(json.before.conductors[0].maxAt).toBe('2025-10-26 02:00');
