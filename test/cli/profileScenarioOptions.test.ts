@@ -42,6 +42,24 @@ describe('scenarios priced with the file\'s tariff', () => {
     expect(json.tariff.demand.chargePerMonth).toBeCloseTo(3 * Math.hypot(70, 48), 6);
   });
 
+  it('an installation: priced at the main board, where the supply is billed', () => {
+    // Osier Mill: 23,224 kvarh lagging is under 0.4 × 82,231 kWh, so no reactive charge; the studio day is the
+    // largest state at the intake, √(19.65² + 7.46²) = 21.02 kVA × 3.1 EUR/kVA = 65.15 EUR a month.
+    const r = runTrivar(['profile', 'examples/osier-mill-studios.yaml']);
+    expect(r.code).toBe(0);
+    const text = r.stdout.replace(/\s+/g, ' ');
+    expect(text).toContain('Tariff at Mill intake, where the supply is billed');
+    expect(text).toContain('reactive charge 0.00 EUR a year: 0 kvarh lagging above the allowance (23,224 kvarh − 0.4 × 82,231 kWh)');
+    expect(text).toContain('demand charge 65.15 EUR in each month in which "studio day" (21.0 kVA, the largest scenario) lasts a whole 30-min window');
+    const json = JSON.parse(runTrivar(['profile', 'examples/osier-mill-studios.yaml', '--json']).stdout);
+    const day = json.boards[0].scenarios.find((s: { name: string }) => s.name === 'studio day');
+    expect(json.tariff.demand.peakKVA).toBeCloseTo(Math.hypot(day.kW, day.kvar), 9);
+    expect(json.tariff.demand.chargePerMonth).toBeCloseTo(3.1 * Math.hypot(day.kW, day.kvar), 9);
+    const zone = runTrivar(['profile', 'examples/osier-mill-studios.yaml', '--time-zone', 'Europe/Dublin']);
+    expect(zone.code).toBe(2);
+    expect(zone.stderr).toContain('--time-zone works on interval data');
+  });
+
   it('a file with no tariff has none priced, and no heading for one', () => {
     const bare = join(dir, 'no-tariff.yaml');
     const text = `name: Net loft\nsupply: { system: three-phase-4wire, voltage: { lineToLine: 400 }, frequencyHz: 50 }\nloads:\n  - { name: Winch, connection: ABC-star, kW: 5, pf: 0.8 }\nprofile:\n  scenarios:\n    - { name: hauling, hours: 400, loads: { Winch: 1 } }\n`;
