@@ -279,7 +279,11 @@ export function scenarioTariffLines(t: ScenarioTariff | null, year: Pick<BoardSc
   if (t.reactive)
     lines.push(
       wrapText(
-        `reactive charge ${fixed(t.reactive.charge, 2)} ${t.currency} a year: ${thousands(t.reactive.chargeableKvarh)} kvarh lagging above the allowance (${thousands(year.kvarhLagging)} kvarh − ${t.reactive.tanPhiAllowance} × ${thousands(year.kWhImport)} kWh), on the year's totals; the tariff judges each calendar month on its own, so a month with more kvarh per kWh than the year pays more`,
+        `${
+          t.reactive.chargeableKvarh > 0
+            ? `reactive charge ${fixed(t.reactive.charge, 2)} ${t.currency} a year: ${thousands(t.reactive.chargeableKvarh)} kvarh lagging above the allowance (${thousands(year.kvarhLagging)} kvarh − ${t.reactive.tanPhiAllowance} × ${thousands(year.kWhImport)} kWh)`
+            : `no reactive charge: ${thousands(year.kvarhLagging)} kvarh lagging is within the allowance (${t.reactive.tanPhiAllowance} × ${thousands(year.kWhImport)} kWh = ${thousands(t.reactive.tanPhiAllowance * year.kWhImport)} kvarh)`
+        }, on the year's totals; the tariff judges each calendar month on its own, so a month with more kvarh per kWh than the year's can be charged more`,
         '  ',
         '    ',
       ),
