@@ -88,6 +88,27 @@ describe('local times across the autumn clock change carry their offset', () => 
     expect(readFileSync(again, 'utf8')).toBe(readFileSync(first, 'utf8'));
   });
 
+  it('Europe/London, half-hourly: the two 01:00s are +01:00 (BST) and +00:00 (GMT)', () => {
+    const london = join(dir, 'london.csv');
+    const rows = ['00:30,1,0,0', '01:00,1,1,0', '01:30,1,1,0', '01:00,1,0,1', '01:30,1,0,1', '02:00,1,0,0'];
+    writeFileSync(london, [HEADER, ...rows.map((r) => `2025-10-26 ${r}`)].join('\n') + '\n');
+    const intervals = join(dir, 'london-intervals.csv');
+    const r = runTrivar(['profile', BOARD, '--data', london, '--time-zone', 'Europe/London', '--intervals-csv', intervals, '--json']);
+    expect(r.code).toBe(0);
+    const json = JSON.parse(r.stdout);
+    expect(json.sequence.ambiguousTimes).toBe(4);
+    expect(json.before.conductors[0].maxAt).toBe('2025-10-26 01:00+01:00');
+    expect(json.before.conductors[1].maxAt).toBe('2025-10-26 01:00+00:00');
+    expect(readFileSync(intervals, 'utf8').trimEnd().split('\n').slice(1).map((l) => l.slice(0, 22))).toEqual([
+      '2025-10-26 00:30+01:00',
+      '2025-10-26 01:00+01:00',
+      '2025-10-26 01:30+01:00',
+      '2025-10-26 01:00+00:00',
+      '2025-10-26 01:30+00:00',
+      '2025-10-26 02:00+00:00',
+    ]);
+  });
+
   it('in UTC the times stay as they were written, with no offset', () => {
     // The first three hours only: in UTC the repeated 02:00s would be out of order.
     const early = join(dir, 'early.csv');
