@@ -63,7 +63,8 @@ offset) and whose other headers are "<target> [<quantity>]":
 Columns separated by commas. Intervals from 1 s to 1 h; a row a part of an interval before the next
 counts for that part. Gaps and repeated times are reported; gaps stay out of every figure unless
 --fill-gaps says how to fill them (a warning where more than 10 % of the intervals are made up).
-Tariff, limits and the bank live under profile: in the board file (see trivar schema).
+Tariff, limits and the bank live under profile: in the board file (see trivar schema). Without --data
+the file's profile.scenarios run, and the options that work on interval data only are refused.
 
 Examples:
   node scripts/generate-profile-example.mjs /tmp/quay-street.csv
@@ -261,7 +262,7 @@ export function createProgram(io: CliIo, outcome: RunOutcome = { exitCode: EXIT.
       .description('run interval data through the board or installation: peaks and percentiles, hours over limits, energy and billing power factor by month, an automatic bank simulated over the year')
       .argument('<board>', 'board or installation file (YAML or JSON), or - for standard input')
       .option('--data <file>', 'interval data (CSV)')
-      .option('--time-zone <name>', 'IANA time zone of times written without an offset, and of calendar months (default UTC)')
+      .option('--time-zone <name>', 'IANA time zone of times written without an offset, and of calendar months (default UTC); other than UTC, every time printed carries its UTC offset')
       .addOption(new Option('--fill-gaps <how>', 'fill missing intervals (default: leave them out)').choices(['none', 'hold', 'linear']))
       .option('--unlisted-at-rating', 'keep loads that no column drives at their rating (default: off)')
       .option('--bank', 'simulate an automatic capacitor bank over the profile (profile.bank in the board file sets it up)')

@@ -308,6 +308,7 @@ export { checkHandFigures, addHandCapacitors } from './handCheck/checkHandFigure
 export { textbookWorking } from './handCheck/textbookWorking.js';
 export type { ScenarioReading, ScenarioResult, BoardScenarios } from './profile/studyScenarios.js';
 export { studyScenarios } from './profile/studyScenarios.js';
+export type { ScenarioTariff } from './profile/scenarioTariff.js';
 export type { InstallationScenarioBoard, InstallationScenarioResult } from './profile/studyInstallationScenarios.js';
 export { studyInstallationScenarios } from './profile/studyInstallationScenarios.js';
 export type { BankDesign, SwitchingFromBank } from './profile/switchingFromBank.js';

@@ -51,6 +51,36 @@ export interface ProfileCommandOptions {
 }
 
 /**
+ * The options that only interval data gives a meaning to, each with what it does there: beside scenarios
+ * (no --data) they are refused, naming the option, rather than left unused with no file written.
+ */
+const DATA_ONLY_OPTIONS: readonly (readonly [keyof ProfileCommandOptions, string, string])[] = [
+  ['bank', '--bank', 'sizes and simulates a switched bank interval by interval'],
+  ['correctionBank', '--correction-bank', "simulates the correction study's bank interval by interval"],
+  ['board', '--board', 'places the simulated bank on a board'],
+  ['pf', '--pf', 'sets the target of the simulated bank'],
+  ['charts', '--charts', "draws the intervals' currents, power factor and load duration"],
+  ['summaryCsv', '--summary-csv', "writes the intervals' peaks, hours and months"],
+  ['intervalsCsv', '--intervals-csv', 'writes a row per interval'],
+  ['fillGaps', '--fill-gaps', "fills gaps between the data's rows"],
+  ['timeZone', '--time-zone', "reads the data's times and sorts them into calendar months"],
+  ['unlistedAtRating', '--unlisted-at-rating', 'keeps the loads no data column drives at their rating (a scenario\'s `others` does that)'],
+];
+
+/** @throws {UsageError} for the first option given that only interval data gives a meaning to (scenarios have no intervals). */
+export function refuseDataOnlyOptions(options: ProfileCommandOptions): void {
+  for (const [key, option, does] of DATA_ONLY_OPTIONS)
+    if (options[key] !== undefined && options[key] !== false)
+      throw new UsageError(`${option} works on interval data (it ${does}): give --data <file.csv>, or leave ${option} out to run the file's profile.scenarios, which have no intervals`);
+}
+
+/** @throws {UsageError} for --pf with no bank to take it (it would be read by nothing). */
+export function refusePfWithoutBank(options: ProfileCommandOptions): void {
+  if (options.pf !== undefined && !options.bank && !options.correctionBank)
+    throw new UsageError('--pf sets the target of the bank --bank sizes and simulates over the data: give --bank too, or leave --pf out (no bank is simulated without it)');
+}
+
+/**
  * Reads the interval data and runs the profile study on a parsed board (no files written);
  * `trivar profile` and `trivar report --profile-data` share it.
  */
@@ -83,6 +113,7 @@ export async function computeProfileStudy(spec: ReturnType<typeof parseBoard>, d
   if (options.correctionBank && options.bank) throw new UsageError('give either --bank (a bank sized from the profile) or --correction-bank (the correction study\'s bank), not both');
   if (options.correctionBank && options.pf !== undefined)
     throw new UsageError('--pf sets the target of a bank sized from the profile; the correction study\'s bank keeps the target of the board file\'s correction section');
+  refusePfWithoutBank(options);
   const designedBank = options.correctionBank ? designedBankOf(spec, board) : undefined;
   const zone = timeZoneOption(options.timeZone);
   const plan = planColumns(board, readCsvHeader(data), { ...(spec.profile?.groups ? { groups: spec.profile.groups } : {}), undrivenAtRating: options.unlistedAtRating ?? false });
@@ -139,6 +170,7 @@ export async function runProfile(file: string, options: ProfileCommandOptions, i
   timeZoneOption(options.timeZone); // a bad --time-zone is refused even where no data is read
   if (!options.data) {
     if (!spec.profile?.scenarios) throw new UsageError('give the interval data with --data <file.csv>, or scenarios under profile.scenarios in the board file (see trivar profile --help)');
+    refuseDataOnlyOptions(options);
     const result = studyScenarios(board, spec.profile);
     writeResult(io, result, options.json, (r) => renderScenarioReport(r, label));
     return null;
@@ -147,7 +179,7 @@ export async function runProfile(file: string, options: ProfileCommandOptions, i
   assertNotInput([options.summaryCsv, options.intervalsCsv, ...chartFiles].filter((x): x is string => x !== undefined), [file, options.data]);
   const study = await computeProfileStudy(spec, options.data, options, io);
   const currency = spec.profile?.tariff?.currency ?? 'units';
-  if (options.summaryCsv) writeOutputFile(options.summaryCsv, summaryCsv(study.result, label));
+  if (options.summaryCsv) writeOutputFile(options.summaryCsv, summaryCsv(study.result, label, currency));
   if (options.intervalsCsv) writeOutputFile(options.intervalsCsv, intervalCsv(study, label));
   if (options.charts) {
     makeOutputFolder(options.charts);

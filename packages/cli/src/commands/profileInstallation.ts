@@ -32,7 +32,7 @@ import { startProgress } from '../progress.js';
 import { assertNotInput, makeOutputFolder, writeOutputFile } from '../outputFiles.js';
 import { installationIntervalCsv, installationSummaryCsv } from '../format/profileCsv.js';
 import { CHART_FILES, FEEDER_CHART_FILE, writeInstallationProfileCharts } from '../format/profileChartFiles.js';
-import type { ProfileCommandOptions } from './profile.js';
+import { refuseDataOnlyOptions, refusePfWithoutBank, type ProfileCommandOptions } from './profile.js';
 import { inFileSection } from './correct.js';
 import { installationCorrection, switchedBankOf } from './fileCorrectionStudy.js';
 
@@ -68,25 +68,11 @@ function designedInstallationBank(
   return { bank: switchedBankOf(studied, '--correction-bank'), board, measuredAt: studied.measuredAt };
 }
 
-/** Options that need interval data, refused beside scenarios rather than left unused. */
-const DATA_ONLY: readonly [keyof ProfileCommandOptions, string][] = [
-  ['bank', '--bank'],
-  ['correctionBank', '--correction-bank'],
-  ['board', '--board'],
-  ['pf', '--pf'],
-  ['charts', '--charts'],
-  ['summaryCsv', '--summary-csv'],
-  ['intervalsCsv', '--intervals-csv'],
-  ['fillGaps', '--fill-gaps'],
-  ['unlistedAtRating', '--unlisted-at-rating'],
-];
-
 /** The file's `profile.scenarios` through every board at once (no interval data). */
 function runInstallationScenarios(spec: ReturnType<typeof parseInstallation>, installation: Installation, options: ProfileCommandOptions, io: CliIo): null {
   if (!spec.profile?.scenarios)
     throw new UsageError('give the interval data with --data <file.csv>, or scenarios under profile.scenarios in the installation file (see trivar profile --help)');
-  for (const [key, option] of DATA_ONLY)
-    if (options[key] !== undefined && options[key] !== false) throw new UsageError(`${option} works on interval data: give --data <file.csv> (profile.scenarios give each board's figures per scenario)`);
+  refuseDataOnlyOptions(options);
   const result = studyInstallationScenarios(installation, spec.profile);
   writeResult(io, result, options.json, (r) => renderInstallationScenarioReport(r, labellerOf(conventionsOf(installation.main).phaseNames)));
   return null;
@@ -108,6 +94,7 @@ export async function computeInstallationProfileStudy(
   if (options.correctionBank && options.bank) throw new UsageError('give either --bank (a bank sized from the profile) or --correction-bank (the correction study\'s bank), not both');
   if (options.correctionBank && options.pf !== undefined)
     throw new UsageError('--pf sets the target of a bank sized from the profile; the correction study\'s bank keeps the target of the file\'s correction section');
+  refusePfWithoutBank(options);
   // Checked before any data is read, so the error names the option.
   boardIndexOption(installation, options.board, '--board');
   const designed = options.correctionBank ? designedInstallationBank(spec, installation, options.board) : undefined;
@@ -168,7 +155,7 @@ export async function runProfileInstallation(input: unknown, options: ProfileCom
   assertNotInput([options.summaryCsv, options.intervalsCsv, ...chartFiles].filter((x): x is string => x !== undefined), [...inputs, options.data]);
   const study = await computeInstallationProfileStudy(spec, installation, options.data, options, io);
   const label = labellerOf(study.result.phaseNames);
-  if (options.summaryCsv) writeOutputFile(options.summaryCsv, installationSummaryCsv(study.result, label));
+  if (options.summaryCsv) writeOutputFile(options.summaryCsv, installationSummaryCsv(study.result, label, spec.profile?.tariff?.currency ?? 'units'));
   if (options.intervalsCsv) writeOutputFile(options.intervalsCsv, installationIntervalCsv(study, judgedNominalOf(installation.main).ln, label));
   if (options.charts) {
     const dir = options.charts;

@@ -11,6 +11,7 @@ import {
   OVER_RATING_CAUTION,
   percentBeside,
   scenarioOverRating,
+  scenarioTariffLines,
   scenarioTable,
   scenarioYearLine,
   thresholdLines,
@@ -135,6 +136,7 @@ export function renderInstallationScenarioReport(r: InstallationScenarioResult, 
         : `  every scenario within ${band} (${from})`,
     );
   }
+  parts.push(...scenarioTariffLines(r.tariff, r.boards[0]!, [section(`Tariff at ${r.boards[0]!.board}, where the supply is billed`)]));
   const over = r.boards.flatMap((b) => scenarioOverRating(b, label, `${b.board}, `));
   if (over.length) parts.push(section('Over a rating'), ...over, OVER_RATING_CAUTION);
   return `${parts.join('\n')}\n`;

@@ -8,31 +8,36 @@ const cell = (x: string | number | null) => {
   return /[",\n]/.test(x) ? `"${x.replace(/"/g, '""')}"` : x;
 };
 
-/** Rows: figure, where, before, after (empty without a bank), unit. */
-/** @param label the board file's phase labels: the `where` column names lines and phases that way */
-export function summaryCsv(r: ProfileResult, label: PhaseLabeller = labellerOf(r.phaseNames)): string {
-  const rows: (string | number | null)[][] = [['figure', 'where', 'before', 'after', 'unit'], ...summaryRows(r.before, r.bank?.after ?? null, r.bank?.steps ?? [], label)];
+/**
+ * Rows: figure, where, before, after (empty without a bank), unit.
+ * @param label the board file's phase labels: the `where` column names lines and phases that way
+ * @param currency the tariff's currency (profile.tariff.currency, "units" where it sets none): the charges' unit
+ */
+export function summaryCsv(r: ProfileResult, label: PhaseLabeller = labellerOf(r.phaseNames), currency = 'units'): string {
+  const rows: (string | number | null)[][] = [['figure', 'where', 'before', 'after', 'unit'], ...summaryRows(r.before, r.bank?.after ?? null, r.bank?.steps ?? [], label, currency, r.timeZone)];
   return rows.map((row) => row.map(cell).join(',')).join('\n') + '\n';
 }
 
 /** The summary of an installation: the rows of summaryCsv for every board, each after the board's name. */
-export function installationSummaryCsv(r: InstallationProfileResult, label: PhaseLabeller = labellerOf(r.phaseNames)): string {
+export function installationSummaryCsv(r: InstallationProfileResult, label: PhaseLabeller = labellerOf(r.phaseNames), currency = 'units'): string {
   const rows: (string | number | null)[][] = [['board', 'figure', 'where', 'before', 'after', 'unit']];
-  for (const b of r.boards) for (const row of summaryRows(b.before, b.after, r.bank?.board === b.board ? r.bank.steps : [], label)) rows.push([b.board, ...row]);
+  for (const b of r.boards) for (const row of summaryRows(b.before, b.after, r.bank?.board === b.board ? r.bank.steps : [], label, currency, r.timeZone)) rows.push([b.board, ...row]);
   // The origin is no board of the file: its rows only when the bank's controller measured there.
   const meter = r.bank?.meter;
-  if (meter?.point === 'origin') for (const row of summaryRows(meter.before, meter.after, [], label)) rows.push(['origin', ...row]);
+  if (meter?.point === 'origin') for (const row of summaryRows(meter.before, meter.after, [], label, currency, r.timeZone)) rows.push(['origin', ...row]);
   return rows.map((row) => row.map(cell).join(',')).join('\n') + '\n';
 }
 
-function summaryRows(before: ProfileSummary, a: ProfileSummary | null, steps: readonly BankStepRun[], label: PhaseLabeller): (string | number | null)[][] {
+function summaryRows(before: ProfileSummary, a: ProfileSummary | null, steps: readonly BankStepRun[], label: PhaseLabeller, currency: string, zone: string): (string | number | null)[][] {
   const rows: (string | number | null)[][] = [];
+  // The times' unit names their zone; outside UTC each carries its offset too (profileClock).
+  const timeUnit = zone === 'UTC' ? 'UTC' : `local time in ${zone}`;
   const add = (figure: string, where: string, pick: (s: ProfileSummary) => string | number | null, unit: string) =>
     rows.push([figure, where, pick(before), a ? pick(a) : null, unit]);
   before.conductors.forEach((c, k) => {
     const where = c.conductor === 'N' ? 'neutral' : `line ${label(c.conductor)}`;
     add('peak current', where, (s) => s.conductors[k]!.maxA, 'A');
-    add('peak current at', where, (s) => s.conductors[k]!.maxAt, 'local time');
+    add('peak current at', where, (s) => s.conductors[k]!.maxAt, timeUnit);
     add('P99 current', where, (s) => s.conductors[k]!.p99A, 'A');
     add('P95 current', where, (s) => s.conductors[k]!.p95A, 'A');
     add('hours over limit', where, (s) => s.conductors[k]!.hoursAboveLimit, 'h');
@@ -56,8 +61,8 @@ function summaryRows(before: ProfileSummary, a: ProfileSummary | null, steps: re
     add('lagging reactive energy', m.month, (s) => s.months[k]!.kvarhLagging, 'kvarh');
     add('billing power factor', m.month, (s) => s.months[k]!.billingPf, '');
     add('peak demand', m.month, (s) => s.months[k]!.peakKVA, 'kVA');
-    add('reactive charge', m.month, (s) => s.months[k]!.reactiveCharge, 'currency');
-    add('demand charge', m.month, (s) => s.months[k]!.demandCharge, 'currency');
+    add('reactive charge', m.month, (s) => s.months[k]!.reactiveCharge, currency);
+    add('demand charge', m.month, (s) => s.months[k]!.demandCharge, currency);
   });
   steps.forEach((s) => rows.push([`bank step ${s.step} closings per year`, label(s.channel), null, s.closingsPerYear, 'operations']));
   return rows;

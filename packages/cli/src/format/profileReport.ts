@@ -1,5 +1,5 @@
 /** ProfileResult → the text report of `trivar profile`. */
-import { belowTargetWords, billingPowerFactorText, contactorLifeWords, intervalSequenceWords, labellerOf, percentBesideEdges, type PhaseLabeller, type ProfileBankResult, type ProfileResult, type ProfileSummary, type ScenarioResult, type BoardScenarios, type VoltageUnbalanceLimit } from '@trivar/core';
+import { belowTargetWords, billingPowerFactorText, contactorLifeWords, intervalSequenceWords, labellerOf, percentBesideEdges, type PhaseLabeller, type ProfileBankResult, type ProfileResult, type ProfileSummary, type ScenarioResult, type ScenarioTariff, type BoardScenarios, type VoltageUnbalanceLimit } from '@trivar/core';
 import { fixed, renderTable, section, thousands } from './textTable.js';
 import { wrapText } from './wrapText.js';
 
@@ -273,6 +273,37 @@ export function scenarioOverRating(r: BoardScenarios, label: PhaseLabeller = LET
   ]);
 }
 
+/**
+ * profile.tariff on scenarios: each charge the one way the scenarios' hours allow, and what that leaves
+ * out; nothing where the file prices nothing.
+ * @param heading the lines that head it, in the report's style
+ */
+export function scenarioTariffLines(t: ScenarioTariff | null, year: Pick<BoardScenarios, 'kWhImport' | 'kvarhLagging'>, heading: readonly string[]): string[] {
+  if (!t) return [];
+  const lines = [...heading];
+  if (t.reactive)
+    lines.push(
+      wrapText(
+        `${
+          t.reactive.chargeableKvarh > 0
+            ? `reactive charge ${fixed(t.reactive.charge, 2)} ${t.currency} a year: ${thousands(t.reactive.chargeableKvarh)} kvarh lagging above the allowance (${thousands(year.kvarhLagging)} kvarh − ${t.reactive.tanPhiAllowance} × ${thousands(year.kWhImport)} kWh)`
+            : `no reactive charge: ${thousands(year.kvarhLagging)} kvarh lagging is within the allowance (${t.reactive.tanPhiAllowance} × ${thousands(year.kWhImport)} kWh = ${thousands(t.reactive.tanPhiAllowance * year.kWhImport)} kvarh)`
+        }, on the year's totals; the tariff judges each calendar month on its own, so a month with more kvarh per kWh than the year's can be charged more`,
+        '  ',
+        '    ',
+      ),
+    );
+  if (t.demand)
+    lines.push(
+      wrapText(
+        `demand charge ${fixed(t.demand.chargePerMonth, 2)} ${t.currency} in each month in which "${t.demand.scenario}" (${fixed(t.demand.peakKVA, 1)} kVA, the largest scenario) lasts a whole ${t.demand.windowMinutes}-min window; scenarios do not say in which months a state falls, so no year's total`,
+        '  ',
+        '    ',
+      ),
+    );
+  return lines;
+}
+
 export const OVER_RATING_CAUTION = '  Conductors above their rating overheat in service: check sizing against local wiring rules.';
 
 /** The report of a board file's scenarios (no interval data). */
@@ -286,6 +317,7 @@ export function renderScenarioReport(r: ScenarioResult, label: PhaseLabeller = l
     scenarioTable(r, label),
     '',
     scenarioYearLine(r),
+    ...scenarioTariffLines(r.tariff, r, ['', 'Tariff']),
     ...(over.length ? ['', 'Over a rating', ...over, OVER_RATING_CAUTION] : []),
   ].join('\n')}\n`;
 }

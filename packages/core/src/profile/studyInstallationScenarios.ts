@@ -20,6 +20,7 @@ import { ambiguousLoadIssue, bankPartIssue, boardNamesOf, flattenLoads, loadLook
 import { allocateBoardFigures, compileInstallationBatch, solveInstallationBatch } from './installationBatch.js';
 import type { ProfileSpec } from './profileSpec.js';
 import { aboveBandEdge, belowBandEdge } from '../board/conventions/voltageLimits.js';
+import { priceScenarios, type ScenarioTariff } from './scenarioTariff.js';
 import { resolveLimits } from './studyProfile.js';
 import type { ResolvedLimits } from './summariseFigures.js';
 import { readBoardScenarios, scenarioDrivers, scenarioHours, type BoardScenarios } from './studyScenarios.js';
@@ -45,6 +46,8 @@ export interface InstallationScenarioResult {
   readonly phaseNames: PhaseNaming;
   /** The banks the file lists in service (harmonics.banks), as listed in every scenario. */
   readonly banksInService: readonly ListedBankInService[];
+  /** profile.tariff priced on the main board's scenarios, where the supply is billed (scenarioTariff.ts); null where it prices nothing. */
+  readonly tariff: ScenarioTariff | null;
 }
 
 const EXPECTED_LOAD = 'a load name on one board, "<board>/<load>" (or "<board>//<load>"), or a group from profile.groups';
@@ -113,23 +116,25 @@ export function studyInstallationScenarios(installation: Installation, profile: 
     largest = Math.max(largest, Math.hypot(w, q));
   }
   const floorVA = NOISE_FLOOR_RELATIVE * largest;
+  const boards = names.map((name, b): InstallationScenarioBoard => {
+    const board = boardOfInstallation(installation, b);
+    const { voltageLowPercent, voltageHighPercent, voltageLimitsFrom } = resolveLimits(board, profile);
+    const read = readBoardScenarios(board, figures[b]!, scenarios, hours, floorVA);
+    return {
+      board: name,
+      fedFrom: b === 0 ? null : names[installation.subBoards[b - 1]!.fedFrom]!,
+      limits: { voltageLowPercent, voltageHighPercent, voltageLimitsFrom },
+      outsideBand: read.scenarios.filter((r) => belowBandEdge(r.lowestVoltagePercent, voltageLowPercent) || aboveBandEdge(r.highestVoltagePercent, voltageHighPercent)).map((r) => r.name),
+      ...read,
+    };
+  });
   return {
     installation: installation.name,
     path: 'nodal',
     hours: hours.reduce((a, b) => a + b, 0),
-    boards: names.map((name, b) => {
-      const board = boardOfInstallation(installation, b);
-      const { voltageLowPercent, voltageHighPercent, voltageLimitsFrom } = resolveLimits(board, profile);
-      const read = readBoardScenarios(board, figures[b]!, scenarios, hours, floorVA);
-      return {
-        board: name,
-        fedFrom: b === 0 ? null : names[installation.subBoards[b - 1]!.fedFrom]!,
-        limits: { voltageLowPercent, voltageHighPercent, voltageLimitsFrom },
-        outsideBand: read.scenarios.filter((r) => belowBandEdge(r.lowestVoltagePercent, voltageLowPercent) || aboveBandEdge(r.highestVoltagePercent, voltageHighPercent)).map((r) => r.name),
-        ...read,
-      };
-    }),
+    boards,
     phaseNames: conventionsOf(installation.main).phaseNames,
     banksInService: listedBanksInService(installation),
+    tariff: priceScenarios(boards[0]!, profile.tariff),
   };
 }

@@ -234,7 +234,19 @@ export function hoursBelowTarget(
   return { hours: below * h, allStepsInHours: allIn * h, underResponseHours: under * h, stepTooCoarseHours: coarse * h };
 }
 
-/** Wall-clock times of the intervals in a zone: local times, calendar months, and the labels reports show. */
+/** An offset from UTC as ISO 8601 writes it after a time: +01:00, -05:00, +05:45. */
+export function utcOffsetText(offsetMs: number): string {
+  const minutes = Math.round(Math.abs(offsetMs) / 60_000);
+  return `${offsetMs < 0 ? '-' : '+'}${pad(Math.floor(minutes / 60))}:${pad(minutes % 60)}`;
+}
+
+/**
+ * Wall-clock times of the intervals in a zone: local times, calendar months, and the labels reports show.
+ * In a zone other than UTC every label carries its offset ("2025-10-26 01:30+01:00"): the hour clocks repeat
+ * when they go back is otherwise written twice alike, and the per-interval CSV, read again in the same zone,
+ * would depend on row order. One form for every time of the zone, whether or not the record crosses a change,
+ * so a script reading the outputs meets one format; the form the interval reader takes back unchanged.
+ */
 export function profileClock(utcMs: Float64Array, zone: string): { localMs: Float64Array; monthKey: Int32Array; label: (i: number) => string; labelUtc: (utcMs: number) => string } {
   const n = utcMs.length;
   const clock = createZoneClock(zone);
@@ -244,11 +256,21 @@ export function profileClock(utcMs: Float64Array, zone: string): { localMs: Floa
     localMs[i] = utcMs[i]! + clock.offsetAt(utcMs[i]!);
     monthKey[i] = monthKeyOf(localMs[i]!);
   }
-  const labelLocal = (ms: number) => {
+  const withOffset = zone !== 'UTC';
+  const labelLocal = (ms: number, offsetMs: number) => {
     const d = new Date(ms);
-    return `${d.getUTCFullYear()}-${pad(d.getUTCMonth() + 1)}-${pad(d.getUTCDate())} ${pad(d.getUTCHours())}:${pad(d.getUTCMinutes())}`;
+    const wall = `${d.getUTCFullYear()}-${pad(d.getUTCMonth() + 1)}-${pad(d.getUTCDate())} ${pad(d.getUTCHours())}:${pad(d.getUTCMinutes())}`;
+    return withOffset ? wall + utcOffsetText(offsetMs) : wall;
   };
-  return { localMs, monthKey, label: (i) => labelLocal(localMs[i]!), labelUtc: (u) => labelLocal(u + clock.offsetAt(u)) };
+  return {
+    localMs,
+    monthKey,
+    label: (i) => labelLocal(localMs[i]!, localMs[i]! - utcMs[i]!),
+    labelUtc: (u) => {
+      const offset = clock.offsetAt(u);
+      return labelLocal(u + offset, offset);
+    },
+  };
 }
 
 export function studyProfile(input: ProfileStudyInput, options: ProfileStudyOptions = {}): ProfileStudy {

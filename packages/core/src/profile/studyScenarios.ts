@@ -19,6 +19,7 @@ import { clearRoundOff, conductorFloorA } from './intervalRoundOff.js';
 import { ownEntry } from '../_internal/ownEntry.js';
 import { judgedNominalOf } from '../board/nominalVoltages.js';
 import { VOLTAGE_UNBALANCE_LIMITS, type VoltageUnbalanceLimit } from '../board/conventions/unbalanceLimits.js';
+import { priceScenarios, type ScenarioTariff } from './scenarioTariff.js';
 
 export interface ScenarioReading {
   readonly name: string;
@@ -56,6 +57,8 @@ export interface ScenarioResult extends BoardScenarios {
   readonly hours: number;
   /** How the board file names its phases (L1/L2/L3 or A/B/C): renderers label lines this way. */
   readonly phaseNames: PhaseNaming;
+  /** profile.tariff priced on the scenarios (scenarioTariff.ts: how, without calendar months); null where it prices nothing. */
+  readonly tariff: ScenarioTariff | null;
 }
 
 const YEAR_HOURS = 8760;
@@ -172,5 +175,13 @@ export function studyScenarios(board: Board, profile: ProfileSpec): ScenarioResu
   clearRoundOff([figures], conductorFloorA([board]), board.nominalLineToNeutralV);
   const { scenarios: readings, ...year } = readBoardScenarios(board, figures, scenarios, hours);
   // Keys in the order the JSON has always had them.
-  return { board: board.name, path, scenarios: readings, hours: hours.reduce((a, b) => a + b, 0), ...year, phaseNames: conventionsOf(board).phaseNames };
+  return {
+    board: board.name,
+    path,
+    scenarios: readings,
+    hours: hours.reduce((a, b) => a + b, 0),
+    ...year,
+    phaseNames: conventionsOf(board).phaseNames,
+    tariff: priceScenarios({ scenarios: readings, ...year }, profile.tariff),
+  };
 }

@@ -106,7 +106,7 @@ export interface SummaryContext {
   readonly rowHours?: Float64Array | null;
   readonly limits: ResolvedLimits;
   readonly tariff: TariffSpec | undefined;
-  /** Wall-clock label of interval i. */
+  /** Wall-clock label of interval i: "2025-10-26 01:30", with its UTC offset ("+01:00") in a zone other than UTC (profileClock). */
   readonly label: (i: number) => string;
   readonly labelUtc: (utcMs: number) => string;
 }

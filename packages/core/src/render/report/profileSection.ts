@@ -9,6 +9,7 @@ import type { ProfileBankResult, ProfileResult } from '../../profile/studyProfil
 import type { InstallationProfileResult } from '../../profile/studyInstallationProfile.js';
 import type { ProfileSummary, ResolvedLimits } from '../../profile/summariseFigures.js';
 import { fixed } from '../svgText.js';
+import { groupDigits } from '../../_internal/groupDigits.js';
 import { percentBesideEdges } from '../../board/conventions/voltageBesideBand.js';
 
 /** A % of nominal beside the hours outside the band, with the decimals that show its side of it. */
@@ -31,8 +32,10 @@ const orDash = (x: number | null, d: number): string => (x === null ? '—' : fi
 /** A voltage threshold as given: 90, 91.7 (c84-service-b), 94.25. */
 const limitPercent = (x: number) => String(Math.round(x * 100) / 100);
 const bandWords = (limits: ResolvedLimits) => (limits.voltageLimitsFrom === 'profile.limits' ? 'profile.limits' : `the board's voltage limits, ${limits.voltageLimitsFrom}`);
+/** A whole number with its thousands grouped, as `trivar profile` prints counts and energies: 210,100. */
+const grouped = (x: number) => groupDigits(Math.round(x) || 0);
 const intervalWords = (p: Pick<ProfileResult, 'intervals' | 'timeZone'>) =>
-  `${p.intervals.count} of ${fixed(p.intervals.intervalSeconds / 60, 0)} min, ${p.intervals.first} to ${p.intervals.last} (${p.timeZone})`;
+  `${grouped(p.intervals.count)} of ${fixed(p.intervals.intervalSeconds / 60, 0)} min, ${p.intervals.first} to ${p.intervals.last} (${p.timeZone})`;
 
 /** What one board's blocks are read from: a board's study, or one board of an installation's. */
 interface BoardProfileView {
@@ -49,8 +52,15 @@ interface BoardProfileView {
 }
 
 /** The facts, the currents and the voltages of one board, then its charts. */
-/** The board region's unbalance index, capitalised, with its definition where its name does not say it. */
-const unbalanceWords = (u: VoltageUnbalanceLimit) => `${u.name[0]!.toUpperCase()}${u.name.slice(1)}${u.definition ? ` (${u.definition}; ${u.source})` : ` (${u.source})`}`;
+/**
+ * The board region's unbalance index, capitalised, with its definition where its name does not say it, and
+ * where its limit comes from: the file's profile.limits where it sets one (as `trivar profile` says), else the
+ * standard the region's level is from.
+ */
+const unbalanceWords = (u: VoltageUnbalanceLimit, limits: Pick<ResolvedLimits, 'unbalanceFrom'>) => {
+  const source = limits.unbalanceFrom === 'profile.limits' ? 'profile.limits' : u.source;
+  return `${u.name[0]!.toUpperCase()}${u.name.slice(1)}${u.definition ? ` (${u.definition}; ${source})` : ` (${source})`}`;
+};
 
 /** The data's gaps and repeated times, as `trivar profile` words them. */
 const sequenceFacts = (s: ProfileResult['sequence']): [string, string][] => (s ? [['Interval data', intervalSequenceWords(s, false).join('; ')]] : []);
@@ -68,14 +78,14 @@ function boardBlocks(p: BoardProfileView, charts: readonly ProfileChart[], namin
         ['Intervals', intervalWords(p)],
         ...sequenceFacts(p.sequence),
         ...columnFacts(p.columnNotes),
-        ['Energy imported / exported', `${fixed(s.energy.kWhImport, 0)} kWh / ${fixed(s.energy.kWhExport, 0)} kWh`],
-        ['Reactive energy lagging / leading', `${fixed(s.energy.kvarhLagging, 0)} kvarh / ${fixed(s.energy.kvarhLeading, 0)} kvarh`],
+        ['Energy imported / exported', `${grouped(s.energy.kWhImport)} kWh / ${grouped(s.energy.kWhExport)} kWh`],
+        ['Reactive energy lagging / leading', `${grouped(s.energy.kvarhLagging)} kvarh / ${grouped(s.energy.kvarhLeading)} kvarh`],
         ['Billing power factor', billingPowerFactorText(s.energy.billingPf)],
         ['Hours importing at a leading PF', fixed(s.leadingHours, 1)],
         ...((s.unbalance
           ? [
               [
-                `${unbalanceWords(p.limits.unbalance)}, highest / 95th percentile / hours above ${limitPercent(p.limits.unbalancePercent)} %`,
+                `${unbalanceWords(p.limits.unbalance, p.limits)}, highest / 95th percentile / hours above ${limitPercent(p.limits.unbalancePercent)} %`,
                 `${fixed(s.unbalance.maxPercent, 2)} % (${s.unbalance.maxAt}) / ${fixed(s.unbalance.p95Percent, 2)} % / ${fixed(s.unbalance.hoursAbove, 1)}`,
               ],
             ]
