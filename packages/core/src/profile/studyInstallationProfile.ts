@@ -186,6 +186,7 @@ export function studyInstallationProfile(input: InstallationProfileInput, option
       board: boards[bankAt]!,
       before: before[bankAt]!,
       ...(meterBefore ? { meterBefore } : {}),
+      ...(meter ? { meterPoint: meter.point } : {}),
       intervalMs: input.intervalMs,
       label,
       ...(input.profile ? { profile: input.profile } : {}),
