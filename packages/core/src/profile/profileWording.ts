@@ -97,9 +97,11 @@ export function noVoltageRiseWords(everConnected: boolean): string {
  * many of the size cover the need, or the controller rehearsed over the profile did better with fewer,
  * larger steps (sizeBankSteps).
  */
-export function fewerStepsWords(place: string, count: number, stepCount: number, reason: 'need-covered' | 'rehearsed', delaySeconds: number): string {
+export function fewerStepsWords(place: string, count: number, stepCount: number, reason: 'need-covered' | 'rehearsed' | 'catalogue', delaySeconds: number): string {
   const steps = `${count} ${place} step${count === 1 ? '' : 's'}, not the ${stepCount} allowed (profile.bank.stepCount)`;
   if (reason === 'need-covered') return `${steps}: ${count === 1 ? 'one step covers' : `${count} steps of that size cover`} the need`;
+  if (reason === 'catalogue')
+    return `${steps}: more, smaller steps of a size off the 2.5 kvar catalogue grid did slightly better over the profile (less than 10 % less kvarh short of the target and leading), not enough to leave the catalogue sizes`;
   return `${steps}: the controller rehearsed over the profile (one step at a time${delaySeconds > 0 ? `, a move every ${delaySeconds} s` : ''}) left the board less short of the target and less leading, in kvarh, with fewer, larger steps than with more, smaller ones`;
 }
 

@@ -38,13 +38,16 @@ export interface StepSizing {
    * at that need (false: no step size tried lets the last step close; the steps are the catalogue ones).
    */
   readonly reaches: Readonly<Record<string, boolean>>;
-  /**
-   * Per channel sized with fewer steps than `stepCount` allows, why: 'need-covered' (that many of the size
-   * cover the need) or 'rehearsed' (the controller rehearsed on the profile left less short and less leading
-   * with fewer, larger steps); channels with every step allowed are absent.
-   */
-  readonly fewerSteps: Readonly<Record<string, 'need-covered' | 'rehearsed'>>;
+  /** Per channel sized with fewer steps than `stepCount` allows, why; channels with every step allowed are absent. */
+  readonly fewerSteps: Readonly<Record<string, FewerStepsReason>>;
 }
+
+/**
+ * Why fewer steps than allowed: 'need-covered', that many of the catalogue size cover the need (or none
+ * closes up to it); 'rehearsed', the controller rehearsed on the profile left less short and less leading
+ * with fewer, larger steps; 'catalogue', more, finer steps did better, but by less than FINER_GRID_GAIN.
+ */
+export type FewerStepsReason = 'need-covered' | 'rehearsed' | 'catalogue';
 
 const roundUp = (x: number, unit: number) => Math.ceil(x / unit - 1e-9) * unit;
 
@@ -173,10 +176,10 @@ const FINER_GRID_GAIN = 0.9;
  * unless a finer size is clearly better (FINER_GRID_GAIN). Only the size with the least kvar short at a steady
  * load is rehearsed for each grid and step count; where no size closes up to the need, the catalogue size, flagged.
  */
-function equalSteps(need: number, table: NeedTable, most: number, grids: readonly StepGrid[], responseShare: number, delayShare: number): { each: number; count: number; reaches: boolean; rehearsed: boolean } {
+function equalSteps(need: number, table: NeedTable, most: number, grids: readonly StepGrid[], responseShare: number, delayShare: number): { each: number; count: number; reaches: boolean; why: FewerStepsReason } {
   const countFor = (each: number) => Math.min(most, Math.max(1, Math.ceil(need / each - 1e-9)));
   const first = Math.max(grids[0]!.smallest, roundUp(need / most, grids[0]!.unit));
-  if (closesToTarget(need, first, countFor(first), responseShare)) return { each: first, count: countFor(first), reaches: true, rehearsed: false };
+  if (closesToTarget(need, first, countFor(first), responseShare)) return { each: first, count: countFor(first), reaches: true, why: 'need-covered' };
   // Per grid and step count, the size whose dead bands leave the least short at a steady load.
   const shortlist = new Map<string, { each: number; count: number; grid: number; short: number }>();
   grids.forEach((grid, g) => {
@@ -203,7 +206,10 @@ function equalSteps(need: number, table: NeedTable, most: number, grids: readonl
   const catalogue = best[0] ?? null;
   const finer = best.slice(1).find((b) => b !== null) ?? null;
   const chosen = catalogue && (!finer || finer.score >= FINER_GRID_GAIN * catalogue.score) ? catalogue : finer;
-  return chosen ? { each: chosen.each, count: chosen.count, reaches: true, rehearsed: true } : { each: first, count: countFor(first), reaches: false, rehearsed: false };
+  if (!chosen) return { each: first, count: countFor(first), reaches: false, why: 'need-covered' };
+  // Fewer steps than allowed because more of them did worse, or because the better ones were off the catalogue.
+  const moreDidBetter = finer !== null && chosen === catalogue && finer.count > chosen.count && finer.score < chosen.score;
+  return { each: chosen.each, count: chosen.count, reaches: true, why: moreDidBetter ? 'catalogue' : 'rehearsed' };
 }
 
 export function sizeBankSteps(
@@ -228,15 +234,15 @@ export function sizeBankSteps(
   const steps: SwitchedStep[] = [];
   const needKvar: Record<string, number> = {};
   const reaches: Record<string, boolean> = {};
-  const fewerSteps: Record<string, 'need-covered' | 'rehearsed'> = {};
+  const fewerSteps: Record<string, FewerStepsReason> = {};
   if (options.perPhase && board.hasNeutral) {
     board.phases.forEach((p, k) => {
       const need = needOf((i) => [before.phaseW[k]![i]!, before.phaseVar[k]![i]!]);
       needKvar[p] = need;
       if (need <= 0) return;
-      const { each, count, reaches: closes, rehearsed } = equalSteps(need, table, options.stepCount, SINGLE_PHASE_GRIDS, options.responseShare, options.delayShare ?? 1);
+      const { each, count, reaches: closes, why } = equalSteps(need, table, options.stepCount, SINGLE_PHASE_GRIDS, options.responseShare, options.delayShare ?? 1);
       reaches[p] = closes;
-      if (count < options.stepCount) fewerSteps[p] = rehearsed ? 'rehearsed' : 'need-covered';
+      if (count < options.stepCount) fewerSteps[p] = why;
       for (let s = 0; s < count; s++) steps.push({ kvar: each, channel: p });
     });
   } else {
@@ -251,9 +257,9 @@ export function sizeBankSteps(
     });
     needKvar.ABC = need;
     if (need > 0) {
-      const { each, count, reaches: closes, rehearsed } = equalSteps(need, table, options.stepCount, THREE_PHASE_GRIDS, options.responseShare, options.delayShare ?? 1);
+      const { each, count, reaches: closes, why } = equalSteps(need, table, options.stepCount, THREE_PHASE_GRIDS, options.responseShare, options.delayShare ?? 1);
       reaches.ABC = closes;
-      if (count < options.stepCount) fewerSteps.ABC = rehearsed ? 'rehearsed' : 'need-covered';
+      if (count < options.stepCount) fewerSteps.ABC = why;
       for (let s = 0; s < count; s++) steps.push({ kvar: each, channel: 'ABC' });
     }
   }
