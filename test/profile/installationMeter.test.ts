@@ -101,6 +101,9 @@ describe('a bank whose controller measures away from its board', () => {
   it('the origin reads the service cable too: the intake\'s currents, more import by the cable\'s losses only', () => {
     const r = study({ ...SETTINGS, steps: STEPS, measuredAt: 'origin' }).result;
     const origin = r.bank!.meter!;
+    // The hours below the target are worked there, and say so.
+    expect(r.bank!.measuredAt).toBe('origin');
+    expect(study({ ...SETTINGS, steps: STEPS }).result.bank!.measuredAt).toBeNull();
     const intake = r.boards[0]!;
     // One current through the service cable: the origin's lines and neutral peak as the intake's do.
     origin.before.conductors.forEach((c, k) => expect(Math.abs(c.maxA - intake.before.conductors[k]!.maxA)).toBeLessThanOrEqual(1e-9 * c.maxA));

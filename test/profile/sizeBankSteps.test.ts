@@ -75,3 +75,43 @@ describe('sizeBankSteps: steps whose last one the controller closes (C/k thresho
     expect(reaches).toEqual({ ABC: false });
   });
 });
+
+describe('sizeBankSteps: sizes judged by the kvarh they leave short of the target and leading, over the profile', () => {
+  const options = { targetPf: 1, coverShare: 1, stepCount: 8, perPhase: false, responseShare: 0.67 };
+  /** Intervals whose three-phase lagging kvar are `needs` (no real power, so at PF 1 the need is the kvar). */
+  const profile = (needs: readonly number[]) => {
+    const f = figures(0, 0, needs.length);
+    needs.forEach((q, i) => f.phaseVar.forEach((col) => ((col as Float64Array)[i] = (q / 3) * 1000)));
+    return f;
+  };
+
+  it('a load spread evenly up to 99.5 kvar: every step stepCount allows, not a few coarse ones', () => {
+    // Sized for 99.5 kvar in at most 8 steps: the catalogue's 8 × 12.5 kvar leave 99.5 − 7 × 12.5 = 12 kvar for the
+    // last, above 0.67 × 12.5 = 8.4, so they close up to it: all eight.
+    const needs = Array.from({ length: 200 }, (_, i) => 0.5 + i * 0.5);
+    const { steps, fewerSteps } = sizeBankSteps(board, profile(needs), { ...options, delayShare: 0 });
+    expect(steps.map((s) => s.kvar)).toEqual(Array(8).fill(12.5));
+    expect(fewerSteps).toEqual({});
+  });
+
+  it('fewer steps than allowed where that many of the catalogue size cover the need, and why', () => {
+    // 101 kvar at most, 8 steps: 101 / 8 = 12.6 rounds up to 15 kvar, of which 7 cover it (ceil(101 / 15)), and the
+    // last closes (101 − 6 × 15 = 11 > 0.67 × 15 = 10.05).
+    const needs = Array.from({ length: 202 }, (_, i) => 0.5 + i * 0.5);
+    const { steps, fewerSteps, reaches } = sizeBankSteps(board, profile(needs), { ...options, delayShare: 0 });
+    expect(reaches).toEqual({ ABC: true });
+    expect(steps.map((s) => s.kvar)).toEqual(Array(7).fill(15));
+    expect(fewerSteps).toEqual({ ABC: 'need-covered' });
+  });
+
+  it('a load switching on and off while the controller moves one step per delay: fewer, larger steps, and why', () => {
+    // 20.7 kvar on, 0 off; a move every 1/30 of an interval. 3 × 7.5 kvar close up to it as one step does, but take
+    // three delays to get there and three to leave (short, then leading, meanwhile): one step wins. At unity every
+    // kvar past the need leads: 22.5 kvar by 1.8 kvar whenever on, 21 kvar (finer grid) by 0.3: 7.9 against 19.9
+    // kvar-intervals short and leading in all, so the 21 kvar step.
+    const needs = [0, 20.7, 20.7, 0, 20.7, 0, 0, 20.7, 20.7, 20.7, 0, 0, 0, 20.7, 20.7, 0];
+    const { steps, fewerSteps } = sizeBankSteps(board, profile(needs), { ...options, stepCount: 6, coverShare: 0.95, delayShare: 1 / 30 });
+    expect(steps.map((s) => s.kvar)).toEqual([21]);
+    expect(fewerSteps).toEqual({ ABC: 'rehearsed' });
+  });
+});

@@ -78,11 +78,18 @@ export function thresholdLines(s: ProfileSummary, r: Pick<ProfileResult, 'limits
   return lines;
 }
 
+/** Below this, a table's energies take one decimal: whole units would round a visible share of each line away (common practice, no source). */
+const WHOLE_ENERGY_FROM = 100;
+
 export function energyTable(s: ProfileSummary, label: PhaseLabeller): string {
-  const rows = s.energy.phases.map((p) => [`line ${label(p.phase)}`, thousands(p.kWh), thousands(p.kvarh)]);
-  rows.push(['board, imported', thousands(s.energy.kWhImport), thousands(s.energy.kvarhLagging) + ' lag']);
-  if (s.energy.kWhExport > 0 || s.energy.kvarhLeading > 0) rows.push(['board, exported / leading', thousands(s.energy.kWhExport), thousands(s.energy.kvarhLeading) + ' lead']);
-  return `${renderTable([{ header: '', align: 'left' }, { header: 'kWh' }, { header: 'kvarh' }], rows)}\n  billing power factor over the period: ${billingPowerFactorText(s.energy.billingPf)}`;
+  const e = s.energy;
+  const largest = Math.max(...e.phases.flatMap((p) => [Math.abs(p.kWh), Math.abs(p.kvarh)]), e.kWhImport, e.kvarhLagging, e.kWhExport, e.kvarhLeading);
+  // Round-off cleared as thousands() does, so 7.499999999999998 reads 7.5 and the lines add up to the board as printed.
+  const figure = largest < WHOLE_ENERGY_FROM ? (x: number) => fixed(Number.isFinite(x) && x !== 0 ? Number(x.toPrecision(12)) : x, 1) : thousands;
+  const rows = e.phases.map((p) => [`line ${label(p.phase)}`, figure(p.kWh), figure(p.kvarh)]);
+  rows.push(['board, imported', figure(e.kWhImport), figure(e.kvarhLagging) + ' lag']);
+  if (e.kWhExport > 0 || e.kvarhLeading > 0) rows.push(['board, exported / leading', figure(e.kWhExport), figure(e.kvarhLeading) + ' lead']);
+  return `${renderTable([{ header: '', align: 'left' }, { header: 'kWh' }, { header: 'kvarh' }], rows)}\n  billing power factor over the period: ${billingPowerFactorText(e.billingPf)}`;
 }
 
 export function monthTable(s: ProfileSummary, after: ProfileSummary | null, currency: string): string {
@@ -134,6 +141,7 @@ export function bankLines(r: { readonly bank: ProfileResult['bank']; readonly be
   const lines = [
     `  ${sizing}`,
     `  ${b.steps.length} switched step${b.steps.length === 1 ? '' : 's'}, ${fixed(b.totalKvar, 1)} kvar in all at nominal voltage${b.fixedKvar > 0 ? `; fixed part ${fixed(b.fixedKvar, 1)} kvar, always connected` : ''}`,
+    ...(b.sizingNotes ?? []).map((w) => wrapText(w, '  ', '    ')),
     ...(b.notSimulated
       ? [
           `  not simulated (no single-phase channel for a line-to-line step here): ${[
@@ -144,19 +152,20 @@ export function bankLines(r: { readonly bank: ProfileResult['bank']; readonly be
       : []),
     wrapText(`controller: ${band}, switching threshold ${fixed(set.responseShare, 2)} × smallest step, delay ${set.delaySeconds} s, reconnect after ${set.reconnectSeconds} s${reconnectBasis(set)}`, '  ', '    '),
     wrapText(b.withinInterval.words, '  ', '    '),
-    ...b.warnings.map((w) => wrapText(`warning: ${w}`, '  ', '    ')),
+    ...b.warnings.map((w) => wrapText(`! warning: ${w}`, '  ', '    ')),
     ...(b.targetOutOfReach ? [wrapText(`warning: ${b.targetOutOfReach.words}`, '  ', '    ')] : []),
     '',
     renderTable(
       [{ header: 'step' }, { header: 'where', align: 'left' }, { header: 'kvar' }, { header: 'closings' }, { header: 'per year' }],
       b.steps.map((s) => [String(s.step), b.placeWords[s.channel] ?? s.channel, fixed(s.kvar, 1), thousands(s.closings), thousands(s.closingsPerYear)]),
     ),
+    wrapText(b.closingsBasis.words, '  ', '    '),
     `  typical limit ${thousands(b.operationsPerYearLimit)} operations a year per step (IEC 60831-1 practice); a capacitor contactor lasts about ${thousands(b.contactorLifeOperations)} operations${
       b.yearsToContactorLife === null ? '' : ` — the busiest step ${contactorLifeWords(b.yearsToContactorLife)}`
     }`,
     `  billing power factor ${billingPowerFactorText(r.before.energy.billingPf)} → ${billingPowerFactorText(b.after.energy.billingPf)}; leading import ${hours(r.before.leadingHours)} h → ${hours(b.after.leadingHours)} h`,
     ...belowTargetLines(b),
-    `  largest voltage rise from the bank ${fixed(b.voltageRisePercent, 2)} % of nominal (${b.voltageRiseAt}); highest voltage with it ${percentBeside(Math.max(...b.after.voltages.map((v) => v.maxPercent)), r.limits)} %`,
+    `  ${b.voltageRiseAt === null ? (b.voltageRiseWords ?? 'no voltage rise from the bank') : `largest voltage rise from the bank ${fixed(b.voltageRisePercent, 2)} % of nominal (${b.voltageRiseAt})`}; highest voltage with it ${percentBeside(Math.max(...b.after.voltages.map((v) => v.maxPercent)), r.limits)} %`,
   ];
   return lines.join('\n');
 }

@@ -99,9 +99,13 @@ export function fixed(x: number, digits: number): string {
   return /^-0\.?0*$/.test(s) ? s.slice(1) : s;
 }
 
-/** A whole number grouped in thousands ("145,800"), with a rounded "-0" shown as "0". */
+/**
+ * A whole number grouped in thousands ("145,800"), with a rounded "-0" shown as "0". Round-off is cleared
+ * first (12 significant digits), so a sum that came to 7.499999999999998 for 7.5 rounds as 7.5 does.
+ */
 export function thousands(x: number): string {
-  return (Math.round(x) || 0).toLocaleString('en-US');
+  const cleared = Number.isFinite(x) && x !== 0 ? Number(x.toPrecision(12)) : x;
+  return (Math.round(cleared) || 0).toLocaleString('en-US');
 }
 
 /** A heading line for a report section. */

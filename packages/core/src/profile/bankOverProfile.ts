@@ -8,7 +8,7 @@ import type { StepChannel, SwitchedStep, SwitchingSettings } from './bankControl
 import { CAPACITOR_DISCHARGE, defaultPractice } from '../correction/capacitorDischarge.js';
 import { maximumOf } from './intervalStatistics.js';
 import { PROFILE_DEFAULTS } from './profileDefaults.js';
-import { noBankWords, shortReconnectWords, stepPlaceWords, switchingWithinIntervalWords, targetOutOfReachWords, type NoBankSized } from './profileWording.js';
+import { closingsBasisWords, EXTRAPOLATION_BELOW_HOURS, fewerStepsWords, frequentSwitchingWords, noBankWords, noVoltageRiseWords, shortReconnectWords, stepPlaceWords, switchingWithinIntervalWords, targetOutOfReachWords, type NoBankSized } from './profileWording.js';
 import type { ProfileSpec } from './profileSpec.js';
 import type { BankRun } from './simulateBank.js';
 import { sizeBankSteps } from './sizeBankSteps.js';
@@ -19,6 +19,9 @@ import { judgedNominalOf } from '../board/nominalVoltages.js';
 import { InputError, inputIssue, type InputIssue } from '../errors.js';
 import { conventionsOf } from '../board/conventions/boardConventions.js';
 import { labellerOf } from '../board/conventions/phaseNames.js';
+
+/** The year closings are scaled to: 365 days (a leap day is no more switching). */
+const YEAR_HOURS = 8760;
 
 export interface BankOverProfileInput {
   /** The board the bank is on (its controller measures the board's incomer). */
@@ -37,6 +40,8 @@ export interface BankOverProfileInput {
   readonly label: (i: number) => string;
   readonly summarise: (figures: IntervalFigures) => ProfileSummary;
   /** Runs the switching over every interval with these steps (the figures returned: the bank's board). */
+  /** Where the controller measures when that is not the bank's board: 'origin' or a board's name (`measuredAt`). */
+  readonly meterPoint?: string;
   readonly simulate: (steps: readonly SwitchedStep[], fixed: readonly SwitchedStep[], settings: SwitchingSettings) => BankRun;
 }
 
@@ -106,6 +111,7 @@ export function bankOverProfile(input: BankOverProfileInput, options: Pick<Profi
       };
   let steps: readonly SwitchedStep[];
   let needKvar: Record<string, number> | null = null;
+  let sizingNotes: string[] = [];
   let targetOutOfReach: ProfileBankResult['targetOutOfReach'] = null;
   const source: ProfileBankResult['source'] = designed ? 'correction-study' : b?.steps ? 'board-file-steps' : 'profile';
   if (designed) steps = designed.steps;
@@ -117,9 +123,14 @@ export function bankOverProfile(input: BankOverProfileInput, options: Pick<Profi
       stepCount: b?.stepCount ?? PROFILE_DEFAULTS.stepCount,
       perPhase: b?.perPhase ?? false,
       responseShare: settings.responseShare,
+      // The share of an interval one switching delay takes (1 at most: a move an interval).
+      delayShare: Math.min(1, (settings.delaySeconds * 1000) / input.intervalMs),
     });
     steps = sizing.steps;
     needKvar = { ...sizing.needKvar };
+    sizingNotes = Object.entries(sizing.fewerSteps).map(([channel, reason]) =>
+      fewerStepsWords(stepPlaceWords(board, channel as StepChannel), steps.filter((x) => x.channel === channel).length, b?.stepCount ?? PROFILE_DEFAULTS.stepCount, reason, settings.delaySeconds),
+    );
     const short = Object.entries(sizing.reaches).find(([, closes]) => !closes);
     if (short) {
       const [channel] = short;
@@ -131,9 +142,10 @@ export function bankOverProfile(input: BankOverProfileInput, options: Pick<Profi
   const fixed = designed?.fixed ?? [];
   if (steps.length || fixed.length) {
     const run = input.simulate(steps, fixed, settings);
-    // The time the rows cover (each row its own hours where they are not one interval apart).
-    const spanMs = input.rowHours ? input.rowHours.reduce((a, h) => a + h, 0) * 3_600_000 : n * input.intervalMs;
-    const years = spanMs / (365.25 * 86_400_000);
+    // The rate is taken over the hours the data covers (gaps left out; each row its own hours where rows
+    // are not one interval apart), scaled to a 365-day year.
+    const dataHours = input.rowHours ? input.rowHours.reduce((a, h) => a + h, 0) : (n * input.intervalMs) / 3_600_000;
+    const years = dataHours / YEAR_HOURS;
     const stepRuns = steps.map((s, k) => ({
       step: s.output ?? k + 1,
       channel: s.channel,
@@ -147,6 +159,9 @@ export function bankOverProfile(input: BankOverProfileInput, options: Pick<Profi
     for (let i = 0; i < n; i++)
       for (let k = 0; k < board.phases.length; k++) rise[i] = Math.max(rise[i]!, run.figures.phaseV[k]![i]! - before.phaseV[k]![i]!);
     const worstRise = maximumOf(rise);
+    // A rise under a millionth of nominal is round-off, not a rise: none is reported, and no time for it.
+    const riseShown = worstRise.value > 1e-6 * judgedNominalOf(board).ln;
+    const everConnected = run.connectedKvar.some((k) => k > 0) || fixed.length > 0;
     const { upperPf, ...rest } = settings;
     const totalKvar = steps.reduce((s, x) => s + x.kvar, 0);
     const belowTarget = hoursBelowTarget(
@@ -161,6 +176,7 @@ export function bankOverProfile(input: BankOverProfileInput, options: Pick<Profi
       design: designed?.design ?? null,
       sizedFromProfile: source === 'profile',
       needKvar,
+      sizingNotes,
       placeWords: Object.fromEntries([...new Set([...steps.map((x) => x.channel), ...Object.keys(needKvar ?? {})])].map((c) => [c, stepPlaceWords(board, c as StepChannel)])),
       steps: stepRuns,
       totalKvar,
@@ -173,7 +189,11 @@ export function bankOverProfile(input: BankOverProfileInput, options: Pick<Profi
         dischargeRule: discharge.rule,
         reconnectFrom: designed ? 'correction-study' : b?.reconnectSeconds !== undefined ? 'file' : 'practice',
       },
-      warnings: settings.reconnectSeconds < discharge.seconds ? [shortReconnectWords(settings.reconnectSeconds, discharge)] : [],
+      warnings: [
+        ...(settings.reconnectSeconds < discharge.seconds ? [shortReconnectWords(settings.reconnectSeconds, discharge)] : []),
+        ...(busiest > PROFILE_DEFAULTS.operationsPerYearLimit ? [frequentSwitchingWords(stepRuns, PROFILE_DEFAULTS.operationsPerYearLimit, dataHours, settings.responseShare)] : []),
+      ],
+      closingsBasis: { dataHours, extrapolated: dataHours < EXTRAPOLATION_BELOW_HOURS, words: closingsBasisWords(dataHours) },
       withinInterval: {
         intervalSeconds: input.intervalMs / 1000,
         movesPerInterval: settings.delaySeconds > 0 ? Math.floor(input.intervalMs / 1000 / settings.delaySeconds) : null,
@@ -182,8 +202,10 @@ export function bankOverProfile(input: BankOverProfileInput, options: Pick<Profi
       operationsPerYearLimit: PROFILE_DEFAULTS.operationsPerYearLimit,
       contactorLifeOperations: PROFILE_DEFAULTS.contactorLifeOperations,
       yearsToContactorLife: busiest > 0 ? PROFILE_DEFAULTS.contactorLifeOperations / busiest : null,
-      voltageRisePercent: (100 * worstRise.value) / judgedNominalOf(board).ln,
-      voltageRiseAt: label(worstRise.index),
+      voltageRisePercent: riseShown ? (100 * worstRise.value) / judgedNominalOf(board).ln : 0,
+      voltageRiseAt: riseShown ? label(worstRise.index) : null,
+      voltageRiseWords: riseShown ? null : noVoltageRiseWords(everConnected),
+      measuredAt: input.meterPoint ?? null,
       belowTarget,
       targetOutOfReach,
       after: input.summarise(run.figures),

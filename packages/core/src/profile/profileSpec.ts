@@ -9,6 +9,14 @@ import { labelSchema, nameReferenceSchema, nameSchema } from '../board/nameSchem
 import { CURRENCY_MAX_CHARACTERS } from '../board/boardRanges.js';
 
 const positive = z.number().positive();
+
+/**
+ * The lowest switching threshold, as a share of the smallest step: below half a step, a need between
+ * r × step and (1 − r) × step closes the step, which leaves the board over-corrected by more than r × step,
+ * so the step opens again, and so on while the load holds (common practice, no source).
+ */
+export const MIN_RESPONSE_SHARE = 0.5;
+const RESPONSE_SHARE_RANGE = `a number from ${MIN_RESPONSE_SHARE} to 1.5 (× the smallest step): below ${MIN_RESPONSE_SHARE} a step that closes leaves the board over-corrected past the threshold and opens again, so the controller hunts on a steady load (common practice, no source)`;
 const nonNegative = z.number().nonnegative();
 const powerFactor = z.number().gt(0).max(1);
 
@@ -55,7 +63,14 @@ export const profileBankSchema = z
     coverShare: z.number().gt(0).max(1).optional().describe('share of intervals whose need the sized bank covers; default 0.95'),
     stepCount: z.number().int().min(1).max(16).optional().describe('most equal steps when sizing from the profile (fewer where the need is covered by fewer of the smallest units); default 6'),
     steps: z.array(bankStepSchema).min(1).max(24).optional().describe('steps as built (skips sizing from the profile)'),
-    responseShare: z.number().gt(0).max(1.5).optional().describe('switching threshold as a share of the smallest step (C/k setting); default 0.67'),
+    responseShare: z
+      .number()
+      .min(MIN_RESPONSE_SHARE, { message: RESPONSE_SHARE_RANGE })
+      .max(1.5, { message: RESPONSE_SHARE_RANGE })
+      .optional()
+      .describe(
+        `switching threshold as a share of the smallest step (C/k setting), ${MIN_RESPONSE_SHARE} to 1.5; default 0.67. Below ${MIN_RESPONSE_SHARE} the controller hunts on a steady load: a step that closes leaves the board over-corrected by more than the threshold and opens again (common practice, no source)`,
+      ),
     delaySeconds: nonNegative.max(3600).optional().describe('time a need must persist before a step switches; default 30 s'),
     reconnectSeconds: nonNegative.max(3600).optional().describe('minimum time a step stays off before reconnecting (discharge); default the discharge time of the board\'s practice: 180 s IEC (50 Hz), 60 s North-American (60 Hz)'),
     perPhase: z.boolean().optional().describe('size single-phase steps per phase instead of three-phase steps; default false'),

@@ -44,6 +44,67 @@ export function contactorLifeWords(years: number | null, what = 'that'): string 
   return years > horizon ? `does not reach ${what} within ${horizon} years` : `reaches ${what} in ${years.toFixed(1)} years`;
 }
 
+/**
+ * Below this many hours of data a rate of closings per year is an extrapolation worth saying so: under a
+ * week, the record holds neither a week's working pattern nor a season's (common practice, no source).
+ */
+export const EXTRAPOLATION_BELOW_HOURS = 168;
+
+/**
+ * What the closings per year rest on: the hours of data (gaps left out) scaled to a 365-day year, with the
+ * bank taken as settled at the first interval's load (its start-up switching not counted); a record under
+ * a week is said to be an extrapolation.
+ */
+export function closingsBasisWords(dataHours: number): string {
+  checkNumberArgument(dataHours, 'dataHours', 'the hours of data, a number at least 0', (x) => x >= 0);
+  const h = dataHours < 10 ? dataHours.toFixed(2) : groupDigits(Math.round(dataHours * 10) / 10);
+  const start = "the bank taken as settled at the first interval's load (its start-up switching not counted)";
+  if (Math.abs(dataHours - 8760) < 1e-6) return `per year: the closings over the ${h} h of data (365 days); ${start}`;
+  if (dataHours < EXTRAPOLATION_BELOW_HOURS) return `per year: extrapolated from only ${h} h of data, under a week, so it says little of a year's switching; ${start}`;
+  return `per year: the closings over ${h} h of data, scaled to 8,760 h (365 days); ${start}`;
+}
+
+/**
+ * Steps closing more often than the operations a year a capacitor is commonly rated for: which, how often,
+ * what it does to the equipment, and what switches less. `responseShare` is the switching threshold's share
+ * of the smallest step.
+ */
+export function frequentSwitchingWords(
+  steps: readonly { readonly step: number; readonly kvar: number; readonly closingsPerYear: number }[],
+  limit: number,
+  dataHours: number,
+  responseShare: number,
+): string {
+  const over = steps.filter((s) => s.closingsPerYear > limit).sort((a, b) => b.closingsPerYear - a.closingsPerYear);
+  const named = over.slice(0, 3).map((s) => `step ${s.step} (${s.kvar.toFixed(1)} kvar) ${groupDigits(Math.round(s.closingsPerYear))}`);
+  const more = over.length > 3 ? ` and ${over.length - 3} more` : '';
+  const short = dataHours < EXTRAPOLATION_BELOW_HOURS ? ` (extrapolated from ${dataHours < 10 ? dataHours.toFixed(2) : Math.round(dataHours)} h of data)` : '';
+  return `closings a year above the ${groupDigits(limit)} operations a year a capacitor step is commonly rated for (IEC 60831-1 practice): ${named.join(', ')}${more}${short}. Each closing is an inrush into the capacitor and its contactor, which then wear out early; a longer switching delay, a higher switching threshold (now ${responseShare} × the smallest step) or more, smaller steps switch less`;
+}
+
+/**
+ * Why a bank's largest voltage rise is none: no step was ever connected, or the board's voltage does not
+ * move with its load (the supply taken as ideal, with no impedance to the board).
+ */
+export function noVoltageRiseWords(everConnected: boolean): string {
+  return everConnected
+    ? "no voltage rise from the bank: the board's voltage does not move with its load here (the supply is taken as ideal, with no impedance up to the board)"
+    : 'no voltage rise from the bank: no step is connected in any interval';
+}
+
+/**
+ * Why a bank sized from the profile has fewer steps than profile.bank.stepCount allows on a channel: that
+ * many of the size cover the need, or the controller rehearsed over the profile did better with fewer,
+ * larger steps (sizeBankSteps).
+ */
+export function fewerStepsWords(place: string, count: number, stepCount: number, reason: 'need-covered' | 'rehearsed' | 'catalogue', delaySeconds: number): string {
+  const steps = `${count} ${place} step${count === 1 ? '' : 's'}, not the ${stepCount} allowed (profile.bank.stepCount)`;
+  if (reason === 'need-covered') return `${steps}: ${count === 1 ? 'one step covers' : `${count} steps of that size cover`} the need`;
+  if (reason === 'catalogue')
+    return `${steps}: more, smaller steps of a size off the 2.5 kvar catalogue grid did slightly better over the profile (less than 10 % less kvarh short of the target and leading), not enough to leave the catalogue sizes`;
+  return `${steps}: the controller rehearsed over the profile (one step at a time${delaySeconds > 0 ? `, a move every ${delaySeconds} s` : ''}) left the board less short of the target and less leading, in kvarh, with fewer, larger steps than with more, smaller ones`;
+}
+
 /** A reconnection time set below the practice's discharge time: what it risks, and what to set. */
 export function shortReconnectWords(reconnectSeconds: number, discharge: CapacitorDischarge): string {
   return `profile.bank.reconnectSeconds ${reconnectSeconds} s is shorter than the ${discharge.seconds} s discharge time (${discharge.rule}): the simulation follows the file, but a controller set so switches steps back onto capacitors that may still be charged (inrush, overvoltage, contactor and capacitor damage). Set at least ${discharge.seconds} s unless the units' discharge devices are rated for the shorter time.`;
@@ -185,5 +246,7 @@ export function belowTargetWords(b: ProfileBankResult): string | null {
     ...(t.stepTooCoarseHours > 0 ? [`${hours(t.stepTooCoarseHours)} h with no step small enough to stay under ${pf(set.upperPf!)} (steps coarse for this band at that load)`] : []),
     ...(other > 1e-9 ? [`${hours(other)} h with the controller on its way (switching delay, a step waiting out its discharge${b.steps.some((s) => s.channel !== 'ABC') ? ', or a phase corrected on its own' : ''})`] : []),
   ];
-  return `board PF below ${pf(set.targetPf)} with the bank: ${hours(t.hours)} h of import — ${why.join('; ')}`;
+  // Worked where the controller measures: the bank's board, or upstream of it (profile.bank.measuredAt).
+  const where = b.measuredAt === null || b.measuredAt === undefined ? 'board PF' : b.measuredAt === 'origin' ? "PF at the origin (the supply's terminals, where the controller measures)" : `PF at the incomer of ${b.measuredAt} (where the controller measures)`;
+  return `${where} below ${pf(set.targetPf)} with the bank: ${hours(t.hours)} h of import — ${why.join('; ')}`;
 }

@@ -170,6 +170,30 @@ export function switchBank(input: SwitchBankInput, prepare: (extraEdges: BatchEd
     return { w: read.phaseW[k]![i]!, var: read.phaseVar[k]![i]! };
   };
 
+  /**
+   * The bank is taken as already settled at the first interval's load when the data starts, as it would be
+   * in service: the controller switches at that load, with every step free to close, until it is content,
+   * and those moves are not counted (a start-up, not the switching the data shows).
+   */
+  function settleBeforeFirst(): void {
+    if (n === 0 || steps.length === 0) return;
+    const start = input.utcMs[0]!;
+    const reading = readingAt(0);
+    const stride = Math.max(input.settings.delaySeconds * 1000, 1);
+    let clock = start - (moveCap + 1) * stride;
+    solveWith(0, controller.on);
+    for (let moves = 0; moves < moveCap; moves++) {
+      const at = controller.advance(clock, start, reading);
+      if (at === null) break;
+      clock = at;
+      solveWith(0, controller.on);
+    }
+    controller.closings.fill(0);
+    controller.openings.fill(0);
+    controller.interrupt();
+  }
+
+  settleBeforeFirst();
   for (let i = 0; i < n; i++) {
     if (i > 0 && input.utcMs[i]! - input.utcMs[i - 1]! > input.intervalMs) controller.interrupt();
     const start = input.utcMs[i]!;

@@ -192,6 +192,7 @@ export function studyInstallationProfile(input: InstallationProfileInput, option
       board: boards[bankAt]!,
       before: before[bankAt]!,
       ...(meterBefore ? { meterBefore } : {}),
+      ...(meter ? { meterPoint: meter.point } : {}),
       intervalMs: input.intervalMs,
       rowHours: input.rowHours ?? null,
       label,

@@ -76,6 +76,8 @@ export interface ProfileBankResult {
   readonly design: BankDesign | null;
   readonly sizedFromProfile: boolean;
   readonly needKvar: Readonly<Record<string, number>> | null;
+  /** Sized from the profile with fewer steps than profile.bank.stepCount allows: why, per channel; else empty. */
+  readonly sizingNotes: readonly string[];
   /** Each channel of the steps and the need, in the board's words ("three-phase", "line-to-neutral on L1 and L2", "across L1-L2"). */
   readonly placeWords: Readonly<Record<string, string>>;
   readonly steps: readonly BankStepRun[];
@@ -111,9 +113,24 @@ export interface ProfileBankResult {
   readonly contactorLifeOperations: number;
   /** Years until the busiest step's contactor reaches its typical life. */
   readonly yearsToContactorLife: number | null;
-  /** Largest rise of any phase voltage the bank causes in one interval, % of nominal, and when. */
+  /**
+   * What the closings per year rest on: the hours of data they are scaled from to a 365-day year, whether
+   * that is under a week (an extrapolation), and in words. The bank is taken as settled at the first
+   * interval's load, so its start-up switching is not counted.
+   */
+  readonly closingsBasis: { readonly dataHours: number; readonly extrapolated: boolean; readonly words: string };
+  /**
+   * Largest rise of any phase voltage the bank causes in one interval, % of nominal, and when; 0 and null
+   * where there is none (no step ever in, or a supply with no impedance), `voltageRiseWords` then saying why.
+   */
   readonly voltageRisePercent: number;
-  readonly voltageRiseAt: string;
+  readonly voltageRiseAt: string | null;
+  readonly voltageRiseWords: string | null;
+  /**
+   * Where the controller measures, and `belowTarget` is worked, when that is not the bank's board: 'origin'
+   * or an upstream board's name; null at the bank's own board.
+   */
+  readonly measuredAt: string | null;
   /**
    * Board-total PF below the target while importing (where the controller measures), hours, and why: every
    * step already in (the bank too small for that load); the shortfall under the controller's response threshold

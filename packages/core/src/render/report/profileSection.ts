@@ -117,10 +117,12 @@ function bankBlock(b: ProfileBankResult, where = ''): ReportBlock {
     kind: 'facts',
     items: [
       ['Automatic bank simulated', `${fixed(b.totalKvar, 1)} kvar in ${b.steps.length} steps${where}${b.sizedFromProfile ? ' (sized from the profile)' : ''}`],
+      ...(b.sizingNotes ?? []).map((w): [string, string] => ['Steps', w]),
       ['Billing power factor with the bank', billingPowerFactorText(b.after.energy.billingPf)],
       ['Hours leading with the bank', fixed(b.after.leadingHours, 1)],
-      ['Largest voltage rise from the bank', `${fixed(b.voltageRisePercent, 2)} % (${b.voltageRiseAt})`],
+      ['Largest voltage rise from the bank', b.voltageRiseAt === null ? (b.voltageRiseWords ?? 'none') : `${fixed(b.voltageRisePercent, 2)} % (${b.voltageRiseAt})`],
       ['Busiest step’s contactor and its typical life', contactorLifeWords(b.yearsToContactorLife, 'it') ?? '—'],
+      ['Closings per year at the busiest step', `${groupDigits(Math.round(Math.max(0, ...b.steps.map((x) => x.closingsPerYear))))}: ${b.closingsBasis.words}`],
       ['Reconnection after a step goes off', `${b.settings.reconnectSeconds} s (discharge time ${b.settings.dischargeSeconds} s, ${b.settings.dischargeRule})`],
       ['Switching within an interval', b.withinInterval.words],
       ...(belowTargetWords(b) ? ([['Hours below the target with the bank', belowTargetWords(b)!]] as [string, string][]) : []),
