@@ -305,7 +305,10 @@ function leadingLineWarnings(phases: readonly PhaseReading[], loads: readonly Lo
   // line-to-line load makes lead is not blamed for it.
   const capacitiveOn = (phase: string) =>
     capacitive.reduce((sum, l) => sum + l.branches.reduce((t, b) => t + (b.kvar < 0 && (b.from === phase || b.to === phase) ? (-b.kvar * (b.to === 'N' || b.to.startsWith('star') ? 1 : 0.5)) : 0), 0), 0);
-  const leading = phases.filter((p) => p.kW > 0 && p.sense === 'leading' && p.pf !== null && p.pf < limit && p.kvar + capacitiveOn(p.phase) >= 0);
+  // Without them the line would draw p.kvar + capacitiveOn: zero on a line whose only reactive load is the
+  // capacitor (a single-phase heater beside its capacitor), which round-off may put a few 1e-14 kvar below.
+  const roundOff = (p: PhaseReading) => 1e-9 * Math.max(1, p.kVA);
+  const leading = phases.filter((p) => p.kW > 0 && p.sense === 'leading' && p.pf !== null && p.pf < limit && p.kvar + capacitiveOn(p.phase) >= -roundOff(p));
   if (leading.length === 0) return [];
   const lines = leading.map((p) => `${label(p.phase)} at PF ${p.pf!.toFixed(3)}`);
   const names = capacitive.map((l) => `"${l.name}"`).join(', ');
