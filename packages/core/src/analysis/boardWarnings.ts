@@ -9,7 +9,7 @@ import { bandWords, customLimits, judgeVoltage, presetLimits, type VoltageLimits
 import { voltageBesideBand } from '../board/conventions/voltageBesideBand.js';
 import type { Region } from '../board/conventions/region.js';
 import { unbalanceFigure, VOLTAGE_UNBALANCE_LIMITS } from '../board/conventions/unbalanceLimits.js';
-import { circuitNumberMismatches, overlappingCircuitPositions, sharedCircuitNumbers } from './panelNumbering.js';
+import { circuitNumberMismatches, circuitsAtPositionZero, overlappingCircuitPositions, sharedCircuitNumbers } from './panelNumbering.js';
 import { unitWords } from './sourceUnitsWords.js';
 import { lengthFigure, type FeederRouteLengths } from '../board/feederModel.js';
 import { quoteText } from '../errors.js';
@@ -225,7 +225,7 @@ export function boardWarnings(input: {
     for (const m of circuitNumberMismatches(loads, phases.length)) {
       const rotation = phases.map((p) => label(p.phase)).join(', ');
       const numbering = `the usual panel numbering (odd circuits down the left, even down the right, phases ${rotation} by row)`;
-      // As the file wrote it: every position where it listed them, else the first.
+      // As the file wrote it: every position where it listed them (a range as the positions it spans), else the first.
       const written = m.with.length ? String(m.circuit) : m.positions.join(',');
       const stacked = Array.from({ length: m.poles }, (_, k) => m.circuit + 2 * k);
       const column = m.poles === 1 ? `${m.circuit} alone for a 1-pole breaker` : `${stacked.slice(0, -1).join(', ')} and ${stacked.at(-1)} for a ${m.poles}-pole breaker at ${m.circuit}`;
@@ -243,6 +243,14 @@ export function boardWarnings(input: {
         threshold: phases.length,
       });
     }
+  if (input.region === 'north-america')
+    for (const z of circuitsAtPositionZero(loads))
+      out.push({
+        code: 'circuit-number-zero',
+        message: `load ${quoteText(z.name)} on circuit ${z.circuit}: panel positions are numbered from 1 (odd down the left, even down the right), so 0 is no position on the panel; check the schedule`,
+        value: 0,
+        threshold: 1,
+      });
   if (input.region === 'north-america')
     for (const o of overlappingCircuitPositions(loads, phases.length)) {
       const [a, b] = o.names;
