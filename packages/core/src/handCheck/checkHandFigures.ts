@@ -295,7 +295,8 @@ export function checkHandFigures(board: Board, figures: unknown): HandCheckResul
     ...leadingWarnings(rActual, boardPower.solved, { lines: rBefore.phases, board: powerReading({ re: rBefore.phases.reduce((s, p) => s + p.kW, 0) * 1000, im: rBefore.phases.reduce((s, p) => s + p.kvar, 0) * 1000 }) }, capacitors.reduce((s, c) => s + c.kvarAtAppliedV, 0), solvedKvar, labelsOf(board), (phase) => pairLoads.some((b) => b.from === phase || b.to === phase), (phase) => {
       const tb = hand.phases.find((h) => h.phase === phase)!;
       const pairs = [...new Set([...pairLoads.map((b) => `${b.from}-${b.to}`), ...plans.filter((c) => c.to !== 'N').map((c) => c.spec.branch)])].filter((pair) => pair.split('-').includes(phase));
-      return { loadKvar: tb.kvarBefore, capacitorKvar: tb.capacitorKvar, pairs: pairs.map((pair) => labelsOf(board)(pair)) };
+      // A split-phase 240 V branch is in line with both half-windings: no 30° shift to name there.
+      return { loadKvar: tb.kvarBefore, capacitorKvar: tb.capacitorKvar, pairs: board.system === 'split-phase' ? [] : pairs.map((pair) => labelsOf(board)(pair)) };
     }),
     ...rActual.warnings,
   ];
