@@ -149,9 +149,38 @@ describe('multi-pole breakers written with every position', () => {
     expect(result.warnings.filter((w) => w.code.startsWith('circuit-number-')).map((w) => w.code)).toEqual(['circuit-number-shared']);
   });
 
-  it('positions written in a form not read (a range "1-3", words) are not judged', () => {
-    const loads = [{ name: 'Spare', circuit: '1-3', poles: 2, connection: 'B-C', kW: 1 }, { name: 'Sign', circuit: 'left 3', connection: 'A-N', kW: 0.1 }];
+  it('positions written in words are not judged ("left 3")', () => {
+    const loads = [{ name: 'Sign', circuit: 'left 3', connection: 'A-N', kW: 0.1 }];
     expect(poleWarnings(bakery(loads))).toEqual([]);
+  });
+
+  // A range names the breaker's first and last positions: "1-3" is 1 and 3, stacked (earlier left unread, so
+  // a 2-pole breaker written "11-13" on B-C, which the numbering puts on C-A, passed without a word).
+  it('a range is read as the positions it spans: "1-3" on B-C is flagged (1 and 3 sit on A-B), "13-15" on A-B is not', () => {
+    const warnings = poleWarnings(
+      bakery([
+        { name: 'Spare', circuit: '1-3', poles: 2, connection: 'B-C', kW: 1 },
+        { name: 'Dough sheeter', circuit: '13–15', poles: 2, connection: 'A-B', kW: 2 },
+      ]),
+    );
+    expect(warnings.map((w) => w.message)).toEqual([
+      'load "Spare" on circuit 1,3 is written B-C, but the usual panel numbering (odd circuits down the left, even down the right, phases A, B, C by row) puts circuit 1,3 on A-B: check the schedule or the connection',
+    ]);
+  });
+
+  it('a range whose ends sit in two columns ("11-12") is not one breaker\'s stack, and says so', () => {
+    const warnings = poleWarnings(bakery([{ name: 'Hood fan', circuit: '11-12', poles: 2, connection: 'A-B', kW: 1 }]));
+    expect(warnings.map((w) => w.code)).toEqual(['circuit-number-poles']);
+    expect(warnings[0]!.message).toContain('the poles of one breaker sit one above the other in a column (11 and 13 for a 2-pole breaker at 11), not at 11,12');
+  });
+
+  it('circuit 0 is no panel position: warned, alone or in a list, and a clean schedule has none', () => {
+    const zero = (loads: Record<string, unknown>[]) => solveBoard(bakery(loads)).warnings.filter((w) => w.code === 'circuit-number-zero').map((w) => w.message);
+    expect(zero([{ name: 'Menu board', circuit: '0', connection: 'C-N', kW: 0.2 }, { name: 'Ice maker', circuit: '0,2', poles: 2, connection: 'A-B', kW: 1 }])).toEqual([
+      'load "Menu board" on circuit 0: panel positions are numbered from 1 (odd down the left, even down the right), so 0 is no position on the panel; check the schedule',
+      'load "Ice maker" on circuit 0,2: panel positions are numbered from 1 (odd down the left, even down the right), so 0 is no position on the panel; check the schedule',
+    ]);
+    expect(zero([{ name: 'Menu board', circuit: '10', connection: 'A-N', kW: 0.2 }, { name: 'Spare', circuit: 'spare 0', connection: 'A-N', kW: 0.1 }])).toEqual([]);
   });
 });
 

@@ -288,7 +288,7 @@ export type { BoardReportInput } from './render/report/buildBoardReport.js';
 export { buildBoardReport } from './render/report/buildBoardReport.js';
 export type { InstallationReportInput } from './render/report/buildInstallationReport.js';
 export { buildInstallationReport } from './render/report/buildInstallationReport.js';
-export { handCheckSection, handCheckEffectRows } from './render/report/handCheckSection.js';
+export { handCheckSection, handCheckEffectRows, handCheckComparedRows } from './render/report/handCheckSection.js';
 export type { ReportHtmlOptions } from './render/report/renderReportHtml.js';
 export { renderReportHtml } from './render/report/renderReportHtml.js';
 export type { MarkdownReport } from './render/report/renderReportMarkdown.js';

@@ -1,5 +1,5 @@
 /** Text report of `trivar check`: the textbook working, hand vs solved line by line, and the effects behind each difference. */
-import { handCheckEffectRows, labellerOf, powerFactorText, type HandCheckResult, type PhaseLabeller, type PowerFactorSense } from '@trivar/core';
+import { handCheckComparedRows, handCheckEffectRows, labellerOf, type HandCheckResult, type PhaseLabeller, type PowerFactorSense } from '@trivar/core';
 import { fixed, renderTable, section } from './textTable.js';
 import { wrapText } from './wrapText.js';
 
@@ -10,11 +10,9 @@ const SYSTEM_WORDS: Readonly<Record<string, string>> = {
   'single-phase': 'single-phase',
 };
 
-const signed = (x: number, d: number): string => {
-  const s = fixed(x, d);
-  return /^0\.?0*$/.test(s) ? s : x > 0 ? `+${s}` : s;
-};
-const senseWord = (s: PowerFactorSense): string => (s === 'unity' ? '' : s === 'lagging' ? ' lag' : ' lead');
+const senseWord = (s: PowerFactorSense): string => (s === 'lagging' ? ' lag' : s === 'leading' ? ' lead' : '');
+/** A PF with its sense; — on a phase with no current, which has no PF (as the board table prints it). */
+const pfCell = (pf: number, sense: PowerFactorSense): string => (sense === 'none' ? '—' : `${fixed(pf, 3)}${senseWord(sense)}`);
 const orDash = (x: number | null, d: number): string => (x === null ? '—' : fixed(x, d));
 
 /** @param label the board file's phase labels (`labellerOf(conventionsOf(board).phaseNames)`) */
@@ -52,12 +50,12 @@ export function renderHandCheckReport(r: HandCheckResult, label: PhaseLabeller =
         fixed(p.kW, 2),
         fixed(p.kvarBefore, 2),
         orDash(p.tanBefore, 3),
-        fixed(p.pfBefore, 3),
+        p.kW === 0 && p.kvarBefore === 0 ? '—' : fixed(p.pfBefore, 3),
         ...(r.targetPf !== null ? [orDash(p.requiredKvar, 2)] : []),
         fixed(p.capacitorKvar, 2),
         fixed(p.kvarAfter, 2),
         orDash(p.tanAfter, 3),
-        `${fixed(p.pfAfter, 3)}${senseWord(p.senseAfter)}`,
+        pfCell(p.pfAfter, p.senseAfter),
       ]),
     ),
   );
@@ -72,14 +70,8 @@ export function renderHandCheckReport(r: HandCheckResult, label: PhaseLabeller =
   out.push('  current triangle of each phase, before → after the capacitors');
 
   out.push(section('Hand figures against the solved board, with your capacitors in'));
-  const rows: string[][] = [];
-  for (const l of r.lines) {
-    rows.push([label(l.phase), 'current A', orDash(l.currentA.yours, 1), fixed(l.currentA.textbook, 1), fixed(l.currentA.solved, 1), signed(l.currentA.difference, 1)]);
-    rows.push(['', 'PF', orDash(l.pf.yours, 3), `${fixed(l.pf.textbook, 3)}${senseWord(l.senseTextbook)}`, `${fixed(l.pf.solved, 3)}${senseWord(l.senseSolved)}`, signed(l.pf.difference, 3)]);
-  }
-  if (r.neutralA) rows.push(['N', 'current A', orDash(r.neutralA.yours, 1), fixed(r.neutralA.textbook, 1), fixed(r.neutralA.solved, 1), signed(r.neutralA.difference, 1)]);
-  // The board's PF as every table prints one: a lead/lag tag, or "export" where power flows back.
-  rows.push(['board', 'PF (vector)', orDash(r.boardPf.yours, 3), powerFactorText(r.boardPower.textbook), powerFactorText(r.boardPower.solved), signed(r.boardPf.difference, 3)]);
+  // The line is named once, on its current row; its PF row under it leaves the name blank.
+  const rows = handCheckComparedRows(r, label).map((row) => (row[1] === 'PF' ? ['', ...row.slice(1)] : row));
   out.push(
     renderTable(
       [{ header: 'line', align: 'left' }, { header: 'figure', align: 'left' }, { header: 'yours' }, { header: 'textbook' }, { header: 'solved' }, { header: 'solved − textbook' }],
@@ -101,6 +93,8 @@ export function renderHandCheckReport(r: HandCheckResult, label: PhaseLabeller =
   out.push(
     "  Each effect is switched on in turn, in this order, and the board solved again; its size is how far it moves the figure, and the sizes add up to the whole difference.",
   );
+  if (r.lines.some((l) => l.crossesUnity))
+    out.push('  A PF that crosses unity (lagging one way, leading the other) is compared by its angle φ = atan(Q/|P|), lagging positive, in degrees.');
 
   out.push(section('Warnings') + (r.warnings.length ? r.warnings.map((w) => wrapText(w.message, '  ! ')).join('\n') : '  none'));
 

@@ -20,7 +20,9 @@ const MODEL_SHORT: Record<string, string> = { 'constant-power': 'P', 'constant-c
 
 /** The voltage-drop definition, the same one `voltageDropPercent` uses everywhere. */
 function dropDefinition(r: BoardResult): string {
-  const to = r.neutral ? 'phase to the board neutral bar, so the neutral conductor\'s drop is included' : 'phase to the virtual neutral, the centroid of the line voltages';
+  const to = r.neutral
+    ? 'phase to the board neutral bar, so the neutral conductor\'s drop is included'
+    : 'phase to the virtual neutral, the centroid of the line voltages; the open-circuit voltage is taken the same way, to the centroid of the EMFs';
   return `drop: open-circuit source voltage minus the voltage line-to-neutral loads see — ${to} — in % of nominal; negative is a rise.`;
 }
 

@@ -73,6 +73,10 @@ const loadingOf = (currentA: number, ratingA: number | null): number | null => (
 function readPhases(solution: NetworkSolution, phaseVoltages: readonly ComplexValue[]): PhaseReading[] {
   const { board } = solution;
   const ln = judgedNominalOf(board).ln;
+  // Each phase's open-circuit voltage to the point its phase voltage is read from: the source star point
+  // where a neutral is carried; on a 3-wire board the centroid of the EMFs, since no current sees their
+  // zero-sequence part (unequal EMFs of an open delta would otherwise show a drop with no load at all).
+  const emfCentroid = board.hasNeutral ? ZERO : scale(sum(board.emf), 1 / board.emf.length);
   return board.phases.map((phase, k) => {
     const v = phaseVoltages[k]!;
     const i = solution.lineCurrents[k]!;
@@ -84,7 +88,7 @@ function readPhases(solution: NetworkSolution, phaseVoltages: readonly ComplexVa
       ...powerReading(mul(v, conj(i))),
       loadingPercent: loadingOf(abs(i), lineRatingOf(board, k)),
       // What line-to-neutral loads lose: to the neutral bar, so the neutral conductor's drop counts too.
-      voltageDropPercent: (100 * (abs(board.emf[k]!) - abs(v))) / ln,
+      voltageDropPercent: (100 * (abs(sub(board.emf[k]!, emfCentroid)) - abs(v))) / ln,
     };
   });
 }

@@ -9,7 +9,7 @@ import { bandWords, customLimits, judgeVoltage, presetLimits, type VoltageLimits
 import { voltageBesideBand } from '../board/conventions/voltageBesideBand.js';
 import type { Region } from '../board/conventions/region.js';
 import { unbalanceFigure, VOLTAGE_UNBALANCE_LIMITS } from '../board/conventions/unbalanceLimits.js';
-import { circuitNumberMismatches, overlappingCircuitPositions, sharedCircuitNumbers } from './panelNumbering.js';
+import { circuitNumberMismatches, circuitsAtPositionZero, overlappingCircuitPositions, sharedCircuitNumbers } from './panelNumbering.js';
 import { unitWords } from './sourceUnitsWords.js';
 import { lengthFigure, type FeederRouteLengths, type LengthUnit } from '../board/feederModel.js';
 import { quoteText } from '../errors.js';
@@ -225,7 +225,7 @@ export function boardWarnings(input: {
     for (const m of circuitNumberMismatches(loads, phases.length)) {
       const rotation = phases.map((p) => label(p.phase)).join(', ');
       const numbering = `the usual panel numbering (odd circuits down the left, even down the right, phases ${rotation} by row)`;
-      // As the file wrote it: every position where it listed them, else the first.
+      // As the file wrote it: every position where it listed them (a range as the positions it spans), else the first.
       const written = m.with.length ? String(m.circuit) : m.positions.join(',');
       const stacked = Array.from({ length: m.poles }, (_, k) => m.circuit + 2 * k);
       const column = m.poles === 1 ? `${m.circuit} alone for a 1-pole breaker` : `${stacked.slice(0, -1).join(', ')} and ${stacked.at(-1)} for a ${m.poles}-pole breaker at ${m.circuit}`;
@@ -243,6 +243,14 @@ export function boardWarnings(input: {
         threshold: phases.length,
       });
     }
+  if (input.region === 'north-america')
+    for (const z of circuitsAtPositionZero(loads))
+      out.push({
+        code: 'circuit-number-zero',
+        message: `load ${quoteText(z.name)} on circuit ${z.circuit}: panel positions are numbered from 1 (odd down the left, even down the right), so 0 is no position on the panel; check the schedule`,
+        value: 0,
+        threshold: 1,
+      });
   if (input.region === 'north-america')
     for (const o of overlappingCircuitPositions(loads, phases.length)) {
       const [a, b] = o.names;
@@ -305,7 +313,10 @@ function leadingLineWarnings(phases: readonly PhaseReading[], loads: readonly Lo
   // line-to-line load makes lead is not blamed for it.
   const capacitiveOn = (phase: string) =>
     capacitive.reduce((sum, l) => sum + l.branches.reduce((t, b) => t + (b.kvar < 0 && (b.from === phase || b.to === phase) ? (-b.kvar * (b.to === 'N' || b.to.startsWith('star') ? 1 : 0.5)) : 0), 0), 0);
-  const leading = phases.filter((p) => p.kW > 0 && p.sense === 'leading' && p.pf !== null && p.pf < limit && p.kvar + capacitiveOn(p.phase) >= 0);
+  // Without them the line would draw p.kvar + capacitiveOn: zero on a line whose only reactive load is the
+  // capacitor (a single-phase heater beside its capacitor), which round-off may put a few 1e-14 kvar below.
+  const roundOff = (p: PhaseReading) => 1e-9 * Math.max(1, p.kVA);
+  const leading = phases.filter((p) => p.kW > 0 && p.sense === 'leading' && p.pf !== null && p.pf < limit && p.kvar + capacitiveOn(p.phase) >= -roundOff(p));
   if (leading.length === 0) return [];
   const lines = leading.map((p) => `${label(p.phase)} at PF ${p.pf!.toFixed(3)}`);
   const names = capacitive.map((l) => `"${l.name}"`).join(', ');

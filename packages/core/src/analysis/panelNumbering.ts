@@ -30,14 +30,37 @@ export function writtenPhases(connection: string): string[] | null {
 
 const sameSet = (a: readonly string[], b: readonly string[]) => a.length === b.length && a.every((p) => b.includes(p));
 
+/** A range of positions as schedules write a multi-pole breaker: "11-13", "2–6" (a hyphen or an en dash). */
+const POSITION_RANGE = /^\s*([1-9]\d{0,3})\s*[-\u2013]\s*([1-9]\d{0,3})\s*$/;
+
 /**
  * The breaker positions a circuit names: one number ("7", the first position of a breaker of any
- * poles) or every position of a multi-pole breaker ("1,3", "2/4/6", "1 3 5", "1+3"); null for
- * anything else, which is not judged.
+ * poles), every position of a multi-pole breaker ("1,3", "2/4/6", "1 3 5", "1+3"), or a range from
+ * the first to the last ("11-13": 11 and 13, stacked in a column; "11-12" gives its two ends, which
+ * the rules then find are not stacked); null for anything else, which is not judged.
  */
 export function circuitPositionsOf(circuit: string | null): number[] | null {
-  if (circuit === null || circuit.length > 80 || !/^\s*[1-9]\d{0,3}(?:\s*[,/+&]\s*[1-9]\d{0,3}|\s+[1-9]\d{0,3})*\s*$/.test(circuit)) return null;
+  if (circuit === null || circuit.length > 80) return null;
+  const range = POSITION_RANGE.exec(circuit);
+  if (range) {
+    const [first, last] = [Number(range[1]), Number(range[2])];
+    if (last <= first) return null;
+    return (last - first) % 2 === 0 ? Array.from({ length: (last - first) / 2 + 1 }, (_, k) => first + 2 * k) : [first, last];
+  }
+  if (!/^\s*[1-9]\d{0,3}(?:\s*[,/+&]\s*[1-9]\d{0,3}|\s+[1-9]\d{0,3})*\s*$/.test(circuit)) return null;
   return circuit.trim().split(/[\s,/+&]+/).map(Number);
+}
+
+/**
+ * Loads whose circuit names position 0 ("0", "0,2", "0-2"): positions are numbered from 1, so the
+ * number is a slip (or a spare written as 0) and no rule can place it.
+ */
+export function circuitsAtPositionZero(loads: readonly LoadReading[]): { readonly name: string; readonly circuit: string }[] {
+  return loads.flatMap((load) =>
+    load.origin === 'board' && load.circuit !== null && /^\s*\d{1,4}(?:\s*[,/+&\-\u2013]\s*\d{1,4}|\s+\d{1,4})*\s*$/.test(load.circuit) && load.circuit.trim().split(/[\s,/+&\-\u2013]+/).some((n) => Number(n) === 0)
+      ? [{ name: load.name, circuit: load.circuit.trim() }]
+      : [],
+  );
 }
 
 /**

@@ -3,6 +3,7 @@
  * named function returning the problems it finds; `validateBoard` runs all of
  * them so the user sees every problem in one pass.
  */
+import { hiddenCharactersOf, spaceFoldedName } from './nameFolding.js';
 import { inputIssue, type InputIssue, quoteText } from '../errors.js';
 import type { BoardBaseSpec, ConductorSpec, FeederSpec, LoadBaseSpec, SupplySpec, SystemKind } from './boardSchema.js';
 import { isThreePhase, phasesOf, systemHasNeutral } from './systemTopology.js';
@@ -364,6 +365,13 @@ function ohmsDrawIssues(load: LoadBaseSpec, ohms: { r: number; x: number }, path
   ];
 }
 
+/** The hidden characters two alike names hold, in words: `; this one holds U+00A0`. */
+function hiddenWords(name: string, other: string): string {
+  const [here, there] = [hiddenCharactersOf(name), hiddenCharactersOf(other)];
+  const words = (list: string[]) => list.join(', ');
+  return here.length ? `; this one holds ${words(here)}` : there.length ? `; that one holds ${words(there)}` : '';
+}
+
 /**
  * Load-by-load rules and duplicate names. `loads` may have holes where a load failed the schema
  * (forEach skips them, indices stay the file's); without a valid supply the connection check waits.
@@ -374,6 +382,8 @@ function loadIssues(loads: readonly (LoadBaseSpec | undefined)[], supply: Supply
   const issues: InputIssue[] = [];
   const label = labellerOf(naming);
   const names = new Map<string, number>();
+  // Names alike but for the kind of spaces or invisible characters print alike: refused as duplicates too.
+  const folded = new Map<string, number>();
   loads.forEach((load, i) => {
     if (load === undefined) return;
     const path = `loads[${i}]`;
@@ -383,9 +393,22 @@ function loadIssues(loads: readonly (LoadBaseSpec | undefined)[], supply: Supply
       issues.push(inputIssue('out_of_range', `${path}.ohms`, 'a non-zero impedance (r = x = 0 is a short circuit)', 'r = 0, x = 0'));
     else if (load.ohms && voltages) issues.push(...ohmsDrawIssues(load, load.ohms, path, voltages));
     const first = names.get(load.name);
+    const alike = folded.get(spaceFoldedName(load.name));
     if (first !== undefined)
       issues.push(inputIssue('duplicate', `${path}.name`, `a name not already used (loads[${first}] has it)`, load.name));
-    else names.set(load.name, i);
+    else if (alike !== undefined)
+      issues.push(
+        inputIssue(
+          'duplicate',
+          `${path}.name`,
+          `a name that differs from the other loads' in more than the kind of spaces or invisible characters (loads[${alike}] is ${quoteText(loads[alike]!.name)}${hiddenWords(load.name, loads[alike]!.name)}): every table and work order would print the two alike`,
+          load.name,
+        ),
+      );
+    else {
+      names.set(load.name, i);
+      folded.set(spaceFoldedName(load.name), i);
+    }
   });
   return issues;
 }

@@ -92,7 +92,7 @@ export const conductorSchema = z
     conduit: z.enum(CONDUIT_KINDS).optional().describe('raceway of an AWG/kcmil size, for its NEC Table 9 reactance: non-magnetic (PVC or aluminium conduit, the default) or steel'),
     temperatureC: within(PHYSICAL_RANGES.conductorTemperatureC).optional().describe('conductor operating temperature, °C (default 70 for mm², 75 for AWG/kcmil)'),
     parallel: z.int().min(PARALLEL_CONDUCTORS.min).max(PARALLEL_CONDUCTORS.max).optional().describe('conductors in parallel (2 = a doubled neutral); default 1'),
-    ratingA: within(PHYSICAL_RANGES.ratingA).optional().describe('current rating of this conductor, A'),
+    ratingA: within(PHYSICAL_RANGES.ratingA).optional().describe('current rating of one conductor, A (derated for its installation); with parallel conductors the set is rated parallel × this'),
   })
   .describe('a conductor: r and x directly; or a length with rOhmPerKm, or with a size (mm2, awg or kcmil)');
 

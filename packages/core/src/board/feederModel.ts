@@ -120,12 +120,19 @@ function unequalLengths(conductors: readonly (ConductorSpec | undefined)[], neut
   return { lines, neutral: neutralM, lineUnits: conductors.map((c) => lengthUnitOf(c, feeder)), neutralUnit: lengthUnitOf(neutral, feeder) };
 }
 
+/**
+ * The rating of a conductor's parallel set, A: `ratingA` is one conductor's (the schema says so), and
+ * conductors in parallel share the current, so the set carries `parallel` × that (any grouping derating
+ * is in the figure the file gives); null without a rating.
+ */
+export const setRatingA = (c: ConductorSpec | undefined): number | null => (c?.ratingA === undefined ? null : c.ratingA * (c.parallel ?? 1));
+
 /** @param naming how the file names the phases: a description per phase uses it (`L1: …`) @defaultValue 'A/B/C' */
 export function feederModel(feeder: FeederSpec | undefined, phases: readonly PhaseId[], frequencyHz: number, naming: PhaseNaming = 'A/B/C'): FeederModel {
   const line = feeder?.line;
   const perPhase = line && isPerPhaseLine(line) ? line : null;
   const conductorOf = (p: PhaseId): ConductorSpec | undefined => (perPhase ? perPhase[p] : (line as ConductorSpec | undefined));
-  const ratings = phases.map((p) => conductorOf(p)?.ratingA).filter((a): a is number => a !== undefined);
+  const ratings = phases.map((p) => setRatingA(conductorOf(p))).filter((a): a is number => a !== null);
   const lineWords = [...new Set(phases.map((p) => describeConductor(conductorOf(p), feeder)))];
   const neutralWords = describeConductor(feeder?.neutral, feeder);
   const lineText = lineWords.length === 1 ? lineWords[0] : lineWords.every((w) => w !== null) ? phases.map((p) => `${labelIn(naming, p)}: ${describeConductor(conductorOf(p), feeder)}`).join('; ') : null;
@@ -135,8 +142,8 @@ export function feederModel(feeder: FeederSpec | undefined, phases: readonly Pha
     lineImpedances: phases.map((p) => conductorImpedance(conductorOf(p), feeder, frequencyHz)),
     neutralImpedance: conductorImpedance(feeder?.neutral, feeder, frequencyHz),
     lineRatingA: ratings.length ? Math.min(...ratings) : null,
-    lineRatingsA: phases.map((p) => conductorOf(p)?.ratingA ?? null),
-    neutralRatingA: feeder?.neutral?.ratingA ?? null,
+    lineRatingsA: phases.map((p) => setRatingA(conductorOf(p))),
+    neutralRatingA: setRatingA(feeder?.neutral),
     description,
     ...(lengths ? { unequalLengths: lengths } : {}),
   };

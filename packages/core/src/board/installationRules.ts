@@ -3,6 +3,7 @@
  * under one main board, and each board passes the board rules (its feeder and
  * loads checked at their own paths).
  */
+import { caseFoldedName } from './nameFolding.js';
 import { inputIssue, type InputIssue, quoteText } from '../errors.js';
 import type { BoardBaseSpec } from './boardSchema.js';
 import { missingNeutralWords, ruleFeederNeutral, usesNeutral, type BoardRule } from './boardRules.js';
@@ -35,7 +36,7 @@ function moved(issue: InputIssue, prefix: string): InputIssue {
 }
 
 /** A board name as a reader sees it: spaces collapsed and trimmed, letter case ignored. */
-const foldName = (name: string) => name.trim().replace(/\s+/g, ' ').toLowerCase();
+const foldName = caseFoldedName;
 /** What the reports call the main board's source, folded: no board may take it. */
 const RESERVED_BOARD_NAMES: readonly string[] = ['supply'];
 

@@ -41,12 +41,24 @@ export function validateBoardWith<T extends BoardBaseSpec>(checks: BoardFileChec
   const naming = spelt.spellings.naming;
   const wording = issueNamingOf(naming);
   const parsed = checks.schema.safeParse(spelt.input, ONE_SHOT_PARSE);
-  const shapeIssues = withConductorSizeHints(allInputIssues(parsed.success ? [] : eitherFormIssues(parsed.error.issues, spelt.input), spelt.input, checks.schema), spelt.input);
+  const shapeIssues = withoutUnwrittenSystem(withConductorSizeHints(allInputIssues(parsed.success ? [] : eitherFormIssues(parsed.error.issues, spelt.input), spelt.input, checks.schema), spelt.input), input);
   if (parsed.success && shapeIssues.length === 0) {
     const issues = [...spelt.issues, ...inFileNaming(checks.rules.flatMap((rule) => rule(parsed.data, wording)), naming)];
     return issues.length ? { ok: false, issues } : { ok: true, board: parsed.data };
   }
   return { ok: false, issues: [...spelt.issues, ...inFileNaming([...shapeIssues, ...partialBoardIssues(boardParts(spelt.input, checks.load), wording)], naming)] };
+}
+
+/**
+ * The issues without one at supply.system where the file left the system out and wrote the voltage as a
+ * notation that cannot be read ("480Y277"): the system would have come from that notation, so the
+ * notation's own issue is the one to fix, and a second at a field the file never wrote only misleads.
+ */
+export function withoutUnwrittenSystem(issues: InputIssue[], input: unknown): InputIssue[] {
+  const supply = input !== null && typeof input === 'object' ? (input as Record<string, unknown>).supply : undefined;
+  if (supply === null || typeof supply !== 'object' || 'system' in supply || typeof (supply as Record<string, unknown>).voltage !== 'string') return issues;
+  if (!issues.some((i) => i.path === 'supply.voltage')) return issues;
+  return issues.filter((i) => i.path !== 'supply.system');
 }
 
 /** Each part of a board that passes the schema on its own (for the rules that can still run). */

@@ -6,6 +6,7 @@
 import type * as z from 'zod';
 import type { InputIssue } from '../errors.js';
 import { inputIssuesFromZod } from '../_internal/zodIssues.js';
+import { withoutUnwrittenSystem } from './validateBoardWith.js';
 import { eitherFormIssues } from './eitherFormIssues.js';
 import type { BoardBaseSpec } from './boardSchema.js';
 import type { InstallationBaseSpec } from './installationSchema.js';
@@ -57,7 +58,11 @@ export function validateInstallationWith<I extends InstallationBaseSpec, B exten
   const spelt = readTradeSpellings(input);
   const naming = spelt.spellings.naming;
   const parsed = checks.schema.safeParse(spelt.input, ONE_SHOT_PARSE);
-  if (!parsed.success) return { ok: false, issues: [...spelt.issues, ...inFileNaming(withConductorSizeHints(inputIssuesFromZod(eitherFormIssues(parsed.error.issues, spelt.input), spelt.input, [], { schema: checks.schema, input: spelt.input }), spelt.input), naming)] };
+  if (!parsed.success)
+    return {
+      ok: false,
+      issues: [...spelt.issues, ...inFileNaming(withoutUnwrittenSystem(withConductorSizeHints(inputIssuesFromZod(eitherFormIssues(parsed.error.issues, spelt.input), spelt.input, [], { schema: checks.schema, input: spelt.input }), spelt.input), input), naming)],
+    };
   const issues = [...spelt.issues, ...inFileNaming(checks.rules.flatMap((rule) => rule(parsed.data, issueNamingOf(naming))), naming)];
   return issues.length ? { ok: false, issues } : { ok: true, installation: parsed.data };
 }

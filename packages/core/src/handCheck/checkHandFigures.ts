@@ -12,14 +12,15 @@ import { solveBoardModel } from '../analysis/solveBoardModel.js';
 import { correctionCautions } from '../correction/correctionWording.js';
 import { conventionsOf } from '../board/conventions/boardConventions.js';
 import { regionWords } from '../board/conventions/regionWords.js';
-import { labellerOf, type PhaseLabeller } from '../board/conventions/phaseNames.js';
+import { labellerOf, type PhaseLabel, type PhaseLabeller } from '../board/conventions/phaseNames.js';
 import { parseHandFigures } from './validateHandFigures.js';
 import type { HandFiguresSpec } from './handFiguresSpec.js';
 import type { Compared, EffectContribution, HandCapacitor, HandCheckResult, HandEffectId, LineCheck } from './handCheckResult.js';
 import { nominalPhaseVoltages, textbookWorking } from './textbookWorking.js';
 import { EFFECT_TITLES, effectExplanation, handCheckWarningWords } from './handCheckWording.js';
 import { powerReading } from '../analysis/powerReading.js';
-import type { BoardWarning, PowerReading } from '../analysis/boardResult.js';
+import type { ComplexValue } from '../complex.js';
+import type { BoardWarning, PowerFactorSense, PowerReading } from '../analysis/boardResult.js';
 import { assertBoardModel } from '../board/modelGuards.js';
 
 const ZERO = { re: 0, im: 0 };
@@ -70,6 +71,23 @@ function capacitorLoads(plans: readonly CapacitorPlan[], board: Board, real: boo
   }));
 }
 
+const isNonZero = (z: ComplexValue | undefined): boolean => z !== undefined && (z.re !== 0 || z.im !== 0);
+
+/** Does anything between the EMFs and the board's lines have impedance: a source of any kind, a feeder flat or per phase? */
+const hasSupplyImpedance = (board: Board): boolean =>
+  [board.sourceImpedance, board.lineImpedance, board.sourceStarImpedance, ...(board.sourceImpedances ?? []), ...(board.lineImpedances ?? [])].some(isNonZero);
+
+/**
+ * The board on the hand method's supply: nominal balanced EMFs behind no impedance at all. Every form
+ * of source and feeder impedance is taken off — a bank's or an open delta's units (per phase, and the
+ * open delta's corner), a star-point return, a feeder given per phase — so their drop is booked under
+ * the board voltage, not under the line-pair share.
+ */
+function idealSupplyOf(board: Board, nominal: ReadonlyMap<PhaseId, ComplexValue>): Board {
+  const { sourceImpedances: _units, sourceStarImpedance: _star, openDeltaCorner: _corner, lineImpedances: _lines, ...rest } = board;
+  return { ...rest, emf: board.phases.map((p) => nominal.get(p)!), sourceImpedance: ZERO, lineImpedance: ZERO, neutralImpedance: ZERO };
+}
+
 /** The board file's phase labels (L1-L2 or A-B), for every sentence and name the check writes. */
 const labelsOf = (board: Board): PhaseLabeller => labellerOf(conventionsOf(board).phaseNames);
 
@@ -78,14 +96,23 @@ const asConstantPower = (loads: readonly BoardLoad[]): BoardLoad[] => loads.map(
 interface Figures {
   readonly currentA: ReadonlyMap<PhaseId, number>;
   readonly pf: ReadonlyMap<PhaseId, number>;
+  /** The angle φ of each line's power, atan(Q/|P|), degrees, lagging positive: it passes through unity without a turn. */
+  readonly angleDeg: ReadonlyMap<PhaseId, number>;
   readonly neutralA: number | null;
   readonly boardPf: number;
 }
+
+/** φ = atan(Q/|P|) in degrees, lagging positive; 0 where no power flows. */
+const powerAngleDeg = (kW: number, kvar: number): number => (kW === 0 && kvar === 0 ? 0 : (Math.atan2(kvar, Math.abs(kW)) * 180) / Math.PI);
+
+/** A PF that is lagging on one side and leading on the other: its difference is told by the angle, not by the PF. */
+const crossesUnity = (a: PowerFactorSense, b: PowerFactorSense): boolean => (a === 'lagging' && b === 'leading') || (a === 'leading' && b === 'lagging');
 
 const figuresOf = (r: BoardResult): Figures => ({
   currentA: new Map(r.phases.map((p) => [p.phase, p.current.magnitude])),
   // A line with no current has no PF (null); hand methods take an idle line as unity.
   pf: new Map(r.phases.map((p) => [p.phase, p.pf ?? 1])),
+  angleDeg: new Map(r.phases.map((p) => [p.phase, powerAngleDeg(p.kW, p.kvar)])),
   neutralA: r.neutral && !r.board.neutralOpen ? r.neutral.current.magnitude : null,
   // A board with no power at all: 1, as the textbook working takes it (textbookWorking.ts).
   boardPf: r.powerFactor.vector.pf ?? 1,
@@ -96,7 +123,12 @@ function contribution(effect: HandEffectId, explanation: string, from: Figures, 
     effect,
     title: EFFECT_TITLES[effect],
     explanation,
-    lines: board.phases.map((phase) => ({ phase, currentA: to.currentA.get(phase)! - from.currentA.get(phase)!, pf: to.pf.get(phase)! - from.pf.get(phase)! })),
+    lines: board.phases.map((phase) => ({
+      phase,
+      currentA: to.currentA.get(phase)! - from.currentA.get(phase)!,
+      pf: to.pf.get(phase)! - from.pf.get(phase)!,
+      angleDeg: to.angleDeg.get(phase)! - from.angleDeg.get(phase)!,
+    })),
     neutralA: to.neutralA !== null && from.neutralA !== null ? to.neutralA - from.neutralA : null,
     boardPf: to.boardPf - from.boardPf,
   };
@@ -119,10 +151,20 @@ const leadsVisibly = (r: Pick<PowerReading, 'pf' | 'sense'>): boolean => r.sense
 /** True when `after` leads more than `before` did, as printed (PF to 3 decimals): both leading. */
 const leadsMore = (after: number, before: number): boolean => +after.toFixed(3) < +before.toFixed(3);
 
+/** One line's reactive power as the textbook split counts it, kvar, and the line-pair branches on it. */
+interface LineBalance {
+  readonly loadKvar: number;
+  readonly capacitorKvar: number;
+  readonly pairs: readonly PhaseLabel[];
+}
+
 /**
  * The lines, and the board, your capacitors leave leading: over-correction the figures alone would not
  * say. A reading that already led without the capacitors (a line a line-to-line load makes lead) is
- * worded against that state, as the correction study words it: the capacitors did not cause it.
+ * worded against that state, as the correction study words it: the capacitors did not cause it. A line
+ * that leads only now is over-corrected where its capacitors give it more than its loads draw (the
+ * textbook split, as the working table shows it); where they give it less, its lead is the 30° shift of
+ * the line-pair branches on it, and the warning says that instead.
  */
 function leadingWarnings(
   solved: BoardResult,
@@ -132,12 +174,17 @@ function leadingWarnings(
   loadKvar: number,
   label: PhaseLabeller,
   acrossLines: (phase: PhaseId) => boolean,
+  balance: (phase: PhaseId) => LineBalance,
 ): BoardWarning[] {
   const lines = solved.phases.flatMap((p, k): BoardWarning[] => {
     if (!leadsVisibly(p)) return [];
     const b = before.lines[k]!;
+    const own = balance(p.phase);
+    const overCorrected = own.capacitorKvar > own.loadKvar;
     const message = !leadsVisibly(b)
-      ? handCheckWarningWords.leadingLine(label(p.phase), p.pf!)
+      ? overCorrected || own.pairs.length === 0
+        ? handCheckWarningWords.leadingLine(label(p.phase), p.pf!, own.capacitorKvar, own.loadKvar)
+        : handCheckWarningWords.leadingLineShare(label(p.phase), p.pf!, own.capacitorKvar, own.loadKvar, own.pairs)
       : leadsMore(p.pf!, b.pf!)
         ? handCheckWarningWords.leadingLineMore(label(p.phase), p.pf!, b.pf!)
         : handCheckWarningWords.leadingLineBefore(label(p.phase), p.pf!, b.pf!, acrossLines(p.phase));
@@ -174,7 +221,7 @@ export function checkHandFigures(board: Board, figures: unknown): HandCheckResul
   const realCaps = capacitorLoads(plans, board, true);
   const cpLoads = asConstantPower(board.loads);
   const nominal = nominalPhaseVoltages(board);
-  const ideal: Board = { ...board, emf: board.phases.map((p) => nominal.get(p)!), sourceImpedance: ZERO, lineImpedance: ZERO, neutralImpedance: ZERO, loads: [...cpLoads, ...handCaps] };
+  const ideal: Board = { ...idealSupplyOf(board, nominal), loads: [...cpLoads, ...handCaps] };
   const withDrop: Board = { ...board, neutralImpedance: ZERO, loads: [...cpLoads, ...handCaps] };
   const withNeutral: Board = { ...board, loads: [...cpLoads, ...handCaps] };
   const withCapLaw: Board = { ...board, loads: [...cpLoads, ...realCaps] };
@@ -188,6 +235,7 @@ export function checkHandFigures(board: Board, figures: unknown): HandCheckResul
   const textbookFigures: Figures = {
     currentA: new Map(hand.phases.map((p) => [p.phase, p.currentAfterA])),
     pf: new Map(hand.phases.map((p) => [p.phase, p.pfAfter])),
+    angleDeg: new Map(hand.phases.map((p) => [p.phase, powerAngleDeg(p.kW, p.kvarAfter)])),
     neutralA: rActual.neutral && !board.neutralOpen ? hand.neutralA : null,
     boardPf: hand.boardPf,
   };
@@ -202,8 +250,8 @@ export function checkHandFigures(board: Board, figures: unknown): HandCheckResul
   const pairLoads = board.loads.flatMap((l) => l.branches).filter((b) => b.to !== 'N' && !String(b.to).startsWith('star:'));
   const pairCapKvar = plans.filter((p) => p.to !== 'N').reduce((s, p) => s + p.handKvar, 0);
   const volts = rActual.phases.map((p) => p.voltagePercent);
-  const hasDrop = [board.sourceImpedance, board.lineImpedance].some((z) => z.re !== 0 || z.im !== 0) || board.emf.some((e, k) => Math.abs(e.re - nominal.get(board.phases[k]!)!.re) + Math.abs(e.im - nominal.get(board.phases[k]!)!.im) > 1e-9);
   const unbalancedSource = board.emf.some((e, k) => Math.abs(e.re - nominal.get(board.phases[k]!)!.re) + Math.abs(e.im - nominal.get(board.phases[k]!)!.im) > 1e-9);
+  const hasDrop = hasSupplyImpedance(board) || unbalancedSource;
   const rated = board.loads.flatMap((l) => l.branches).reduce((s, b) => ({ re: s.re + b.sNominal.re, im: s.im + b.sNominal.im }), ZERO);
   const boardLoads = rActual.loads.filter((l) => l.origin === 'board');
   const solvedKW = boardLoads.reduce((s, l) => s + l.kW, 0);
@@ -234,6 +282,8 @@ export function checkHandFigures(board: Board, figures: unknown): HandCheckResul
       pf: compared(mine?.pf, tb.pfAfter, p.pf ?? 1),
       senseTextbook: tb.senseAfter,
       senseSolved: p.sense,
+      angleDeg: compared(null, textbookFigures.angleDeg.get(p.phase)!, powerAngleDeg(p.kW, p.kvar)),
+      crossesUnity: crossesUnity(tb.senseAfter, p.sense),
     };
   });
   const fa = figuresOf(rActual);
@@ -242,7 +292,12 @@ export function checkHandFigures(board: Board, figures: unknown): HandCheckResul
     solved: powerReading({ re: rActual.phases.reduce((s, p) => s + p.kW, 0) * 1000, im: rActual.phases.reduce((s, p) => s + p.kvar, 0) * 1000 }),
   };
   const warnings = [
-    ...leadingWarnings(rActual, boardPower.solved, { lines: rBefore.phases, board: powerReading({ re: rBefore.phases.reduce((s, p) => s + p.kW, 0) * 1000, im: rBefore.phases.reduce((s, p) => s + p.kvar, 0) * 1000 }) }, capacitors.reduce((s, c) => s + c.kvarAtAppliedV, 0), solvedKvar, labelsOf(board), (phase) => pairLoads.some((b) => b.from === phase || b.to === phase)),
+    ...leadingWarnings(rActual, boardPower.solved, { lines: rBefore.phases, board: powerReading({ re: rBefore.phases.reduce((s, p) => s + p.kW, 0) * 1000, im: rBefore.phases.reduce((s, p) => s + p.kvar, 0) * 1000 }) }, capacitors.reduce((s, c) => s + c.kvarAtAppliedV, 0), solvedKvar, labelsOf(board), (phase) => pairLoads.some((b) => b.from === phase || b.to === phase), (phase) => {
+      const tb = hand.phases.find((h) => h.phase === phase)!;
+      const pairs = [...new Set([...pairLoads.map((b) => `${b.from}-${b.to}`), ...plans.filter((c) => c.to !== 'N').map((c) => c.spec.branch)])].filter((pair) => pair.split('-').includes(phase));
+      // A split-phase 240 V branch is in line with both half-windings: no 30° shift to name there.
+      return { loadKvar: tb.kvarBefore, capacitorKvar: tb.capacitorKvar, pairs: board.system === 'split-phase' ? [] : pairs.map((pair) => labelsOf(board)(pair)) };
+    }),
     ...rActual.warnings,
   ];
   const cautions = correctionCautions(regionWords(conventionsOf(board).region, board.system).groundWord);

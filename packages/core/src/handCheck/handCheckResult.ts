@@ -63,8 +63,13 @@ export interface LineCheck {
   readonly phase: PhaseId;
   readonly currentA: Compared;
   readonly pf: Compared;
+  /** 'none' on a line with no current: it has no PF, as the board table prints it (—). */
   readonly senseTextbook: PowerFactorSense;
   readonly senseSolved: PowerFactorSense;
+  /** The angle φ = atan(Q/|P|) of the line's power, degrees, lagging positive (yours: null). */
+  readonly angleDeg: Compared;
+  /** Lagging by one method, leading by the other: the PF difference alone would hide the turn, so φ's is told. */
+  readonly crossesUnity: boolean;
 }
 
 export type HandEffectId = 'line-pair-split' | 'board-voltage' | 'neutral-return' | 'capacitor-voltage' | 'voltage-dependent-loads';
@@ -75,7 +80,8 @@ export interface EffectContribution {
   readonly title: string;
   /** What the effect is, with this board's numbers. */
   readonly explanation: string;
-  readonly lines: readonly { readonly phase: PhaseId; readonly currentA: number; readonly pf: number }[];
+  /** angleDeg: the change of φ = atan(Q/|P|), degrees, lagging positive; the PF change where it does not cross unity. */
+  readonly lines: readonly { readonly phase: PhaseId; readonly currentA: number; readonly pf: number; readonly angleDeg: number }[];
   readonly neutralA: number | null;
   readonly boardPf: number;
 }

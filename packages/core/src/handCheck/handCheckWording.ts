@@ -49,8 +49,17 @@ export const HAND_CHECK_METHOD =
 
 /** What the capacitors do to the board that a hand check must say, beside the figures. */
 export const handCheckWarningWords = {
-  leadingLine: (line: PhaseLabel, pf: number): string =>
-    `line ${line} leads at PF ${f(pf, 3)} with your capacitors in: they supply more reactive power than the loads on it draw (over-correction)`,
+  /** @param capacitorKvar, loadKvar the line's share by the textbook split (a line-pair branch half on each of its lines) */
+  leadingLine: (line: PhaseLabel, pf: number, capacitorKvar: number, loadKvar: number): string =>
+    `line ${line} leads at PF ${f(pf, 3)} with your capacitors in: they supply more reactive power than the loads on it draw (over-correction) — ${f(capacitorKvar, 2)} kvar against ${f(loadKvar, 2)} kvar, a line-pair branch counted half on each of its lines`,
+  /**
+   * A line that leads although its capacitors give it less than its loads draw: the lead is the 30° shift of
+   * the line-pair branches on it, not over-correction.
+   * @param pairs the line-pair branches on this line, in the board's labels (loads and capacitors)
+   */
+  leadingLineShare: (line: PhaseLabel, pf: number, capacitorKvar: number, loadKvar: number, pairs: readonly PhaseLabel[]): string =>
+    `line ${line} leads at PF ${f(pf, 3)} with your capacitors in, yet they give it less reactive power than its loads draw (${f(capacitorKvar, 2)} of ${f(loadKvar, 2)} kvar, a line-pair branch counted half on each of its lines), so this is not over-correction: ` +
+    `a branch across two lines (here ${pairs.join(', ')}) draws its current in step with its line-to-line voltage, 30° ahead of one of its lines' phase voltage and 30° behind the other's, which moves line ${line} towards leading and the other line of the pair towards lagging`,
   /** A line that led as much or more without the capacitors: its loads make it lead, not the capacitors. */
   leadingLineBefore: (line: PhaseLabel, pf: number, pfBefore: number, acrossLines: boolean): string =>
     `line ${line} leads at PF ${f(pf, 3)} with your capacitors in, as it did without them (PF ${f(pfBefore, 3)} leading): the loads on it make it lead${acrossLines ? ' (a load across two lines draws its current 30° off either phase voltage)' : ''}, so this is not over-correction, and capacitors cannot bring it back to lagging`,

@@ -2,8 +2,9 @@
  * The textbook per-phase method, as it is done by hand: every phase at its
  * nominal voltage, each line-to-line branch's P and Q split half to each of
  * its lines, capacitors giving their nameplate kvar, and
- * Qc = P(tan φ1 − tan φ2), I = √(P² + Q²)/V per phase. Also the phasor sum of
- * those per-phase currents for the neutral.
+ * Qc = P(tan φ1 − tan φ2), I = √(P² + Q²)/V per phase. The neutral is the phasor
+ * sum of the line-to-neutral branches' currents only: a branch across two lines
+ * (or on a floating star) returns nothing through the neutral.
  */
 import type { Board, PhaseId } from '../board/boardModel.js';
 import { abs, add, conj, degToRad, div, polar, type ComplexValue } from '../complex.js';
@@ -32,7 +33,17 @@ export function perPhasePowers(board: Board): Map<PhaseId, ComplexValue> {
   return out;
 }
 
-const senseOf = (p: number, q: number): PowerFactorSense => (Math.abs(q) <= 1e-9 * Math.max(1, Math.abs(p)) ? 'unity' : q > 0 ? 'lagging' : 'leading');
+/** P and Q (W, var; load convention) of the branches from each phase to the neutral: what the neutral returns. */
+function lineToNeutralPowers(board: Board): Map<PhaseId, ComplexValue> {
+  const out = new Map<PhaseId, ComplexValue>(board.phases.map((p) => [p, { re: 0, im: 0 }]));
+  for (const b of board.loads.flatMap((l) => l.branches))
+    if (b.to === 'N' && isPhase(b.from, board)) out.set(b.from as PhaseId, add(out.get(b.from as PhaseId)!, b.sNominal));
+  return out;
+}
+
+/** 'none' where the phase carries nothing: no power, no PF to tag, as the board table prints it. */
+const senseOf = (p: number, q: number): PowerFactorSense =>
+  Math.hypot(p, q) <= 1e-9 ? 'none' : Math.abs(q) <= 1e-9 * Math.max(1, Math.abs(p)) ? 'unity' : q > 0 ? 'lagging' : 'leading';
 const pfOf = (p: number, q: number): number => (Math.hypot(p, q) > 0 ? Math.abs(p) / Math.hypot(p, q) : 1);
 
 /** Nominal balanced phase voltages, V. */
@@ -57,7 +68,7 @@ export function perPhaseCapacitorKvar(board: Board, capacitors: readonly Pick<Ha
 
 export interface TextbookFigures {
   readonly phases: readonly TextbookPhase[];
-  /** |Σ I_x| of the per-phase currents at nominal voltage, A; null without a neutral. */
+  /** |Σ I_x| of the line-to-neutral branches' currents at nominal voltage, A; null without a neutral. */
   readonly neutralA: number | null;
   /** Vector power factor ΣP/|ΣS| (negative when the board exports, as in `BoardResult`). */
   readonly boardPf: number;
@@ -70,7 +81,13 @@ export function textbookWorking(board: Board, capacitors: readonly Pick<HandCapa
   const volts = nominalPhaseVoltages(board);
   const v = board.nominalLineToNeutralV;
   const tanTarget = targetPf === null ? null : Math.tan(Math.acos(targetPf));
-  let neutral: ComplexValue = { re: 0, im: 0 };
+  const toNeutral = lineToNeutralPowers(board);
+  for (const c of capacitors) {
+    const [from, to] = c.branch.split('-') as [PhaseId, PhaseId | 'N'];
+    if (to === 'N') toNeutral.set(from, add(toNeutral.get(from)!, { re: 0, im: -1000 * c.handKvar }));
+  }
+  // I = (S/V)*: each phase's line-to-neutral current at its nominal voltage, summed for the neutral.
+  const neutral = board.phases.reduce((n, phase) => add(n, conj(div(toNeutral.get(phase)!, volts.get(phase)!))), { re: 0, im: 0 } as ComplexValue);
   let totalP = 0;
   let totalQ = 0;
   const phases = board.phases.map((phase): TextbookPhase => {
@@ -81,8 +98,6 @@ export function textbookWorking(board: Board, capacitors: readonly Pick<HandCapa
     const kvarAfter = kvarBefore - capacitorKvar;
     totalP += kW;
     totalQ += kvarAfter;
-    // I = (S/V)*: the per-phase current the hand method implies, at its nominal voltage.
-    neutral = add(neutral, conj(div({ re: 1000 * kW, im: 1000 * kvarAfter }, volts.get(phase)!)));
     const positiveP = kW > 1e-12;
     return {
       phase,

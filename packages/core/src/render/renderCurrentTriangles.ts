@@ -28,7 +28,8 @@ export interface LineCurrentParts {
 export function lineCurrentParts(p: PhaseReading): LineCurrentParts {
   checkObjectArgument(p, 'p', 'a phase reading of a solved board (result.phases[i])', ['voltage', 'current', 'kW', 'kvar']);
   const v = p.voltage.magnitude;
-  return v > 0
+  // A line with no current (its round-off read as zero, as every table reads it) has no parts either.
+  return v > 0 && p.current.magnitude > 0
     ? { activeA: (1000 * p.kW) / v, reactiveA: (1000 * p.kvar) / v, magnitudeA: p.current.magnitude, pf: p.pf, sense: p.sense }
     : { activeA: 0, reactiveA: 0, magnitudeA: p.current.magnitude, pf: p.pf, sense: p.sense };
 }
@@ -41,6 +42,11 @@ export interface CurrentTriangleOptions {
 }
 
 export const TRIANGLE_LAYOUT = { panelWidth: 210, top: 64, bottomText: 86, widthBudget: 150, heightBudget: 230 } as const;
+
+/** A current figure: three significant figures, and a plain 0 for none (not 0.000, which reads as a measured figure). */
+const amps = (x: number): string => (x === 0 ? '0' : sig3(x));
+/** A line's current and PF: the figure and PF, or only 'no current' where it carries none. */
+const currentText = (r: LineCurrentParts): string => (r.magnitudeA === 0 ? 'no current' : `${sig3(r.magnitudeA)} A · ${pfText(r)}`);
 
 const pfText = (r: LineCurrentParts): string => r.pf === null ? 'no current' : `PF ${fixed(r.pf, 3)}${r.sense === 'unity' ? '' : r.sense === 'lagging' ? ' lag' : ' lead'}`;
 
@@ -88,10 +94,10 @@ export function renderCurrentTriangles(before: BoardResult, after: BoardResult, 
     const text = (dy: number, content: string, weight = 'normal', fill = INK) =>
       parts.push(`<text${attrs({ x: tx, y: ty + dy, 'font-size': 11, fill, 'font-weight': weight })}>${content}</text>`);
     text(0, escapeXml(`line ${label(l.phase)}`), 'bold', colour);
-    text(15, escapeXml(`before ${sig3(l.before.magnitudeA)} A · ${pfText(l.before)}`), 'normal', MUTED_INK);
-    text(30, escapeXml(`after ${sig3(l.after.magnitudeA)} A · ${pfText(l.after)}`), 'bold');
-    text(45, escapeXml(`active ${sig3(l.before.activeA)} → ${sig3(l.after.activeA)} A`), 'normal', MUTED_INK);
-    text(60, escapeXml(`reactive ${sig3(l.before.reactiveA)} → ${sig3(l.after.reactiveA)} A`), 'normal', MUTED_INK);
+    text(15, escapeXml(`before ${currentText(l.before)}`), 'normal', MUTED_INK);
+    text(30, escapeXml(`after ${currentText(l.after)}`), 'bold');
+    text(45, escapeXml(`active ${amps(l.before.activeA)} → ${amps(l.after.activeA)} A`), 'normal', MUTED_INK);
+    text(60, escapeXml(`reactive ${amps(l.before.reactiveA)} → ${amps(l.after.reactiveA)} A`), 'normal', MUTED_INK);
   });
   const title = options.title ?? 'Line current triangles — before and after';
   const change = options.changeName ?? 'the correction';

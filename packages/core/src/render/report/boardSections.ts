@@ -38,16 +38,20 @@ const pfWords = (r: Pick<PowerReading, 'pf' | 'sense' | 'kVA' | 'kW' | 'kvar'>):
 const currentAngle = (i: { magnitude: number; angleDeg: number }): string => (fixed(i.magnitude, 1) === '0.0' ? '' : fixed(i.angleDeg, 1));
 const orDash = (x: number | null | undefined, digits: number): string => (x === null || x === undefined ? '—' : fixed(x, digits));
 
+/** A conductor's rating as the file gives it, and its parallel set's where there is one: `, rated 60 A each, 120 A the set of 2`. */
+const ratingWords = (c: { readonly ratingA?: number | undefined; readonly parallel?: number | undefined }): string =>
+  c.ratingA === undefined ? '' : (c.parallel ?? 1) > 1 ? `, rated ${c.ratingA} A each, ${c.ratingA * c.parallel!} A the set of ${c.parallel}` : `, rated ${c.ratingA} A`;
+
 export function conductorWords(line: NonNullable<BoardBaseSpec['feeder']>['line'], feeder?: BoardBaseSpec['feeder'], naming: PhaseNaming = 'A/B/C'): string {
   if (!line) return 'none entered (zero impedance)';
   if (isPerPhaseLine(line)) return (['A', 'B', 'C'] as const).filter((p) => line[p]).map((p) => `${labelIn(naming, p)}: ${conductorWords(line[p], feeder)}`).join('; ');
   const c = line;
   const library = describeConductor(c, feeder);
-  if (library) return `${library}${c.ratingA !== undefined ? `, rated ${c.ratingA} A` : ''}`;
+  if (library) return `${library}${ratingWords(c)}`;
   const parts: string[] = [];
   if (c.lengthM !== undefined) parts.push(`${c.lengthM} m at ${c.rOhmPerKm ?? 0} + j${c.xOhmPerKm ?? 0} Ω/km`);
   if (c.r !== undefined || c.x !== undefined) parts.push(`${c.r ?? 0} + j${c.x ?? 0} Ω`);
-  if (c.ratingA !== undefined) parts.push(`rated ${c.ratingA} A`);
+  if (c.ratingA !== undefined) parts.push(ratingWords(c).slice(2));
   return parts.join(', ') || 'zero impedance';
 }
 

@@ -17,6 +17,10 @@ type Label = (term: string) => string;
 const num = (label: string): ReportColumn => ({ label, align: 'right' });
 const orDash = (x: number | null, d: number): string => (x === null ? '—' : fixed(x, d));
 const senseWord = (s: PowerFactorSense): string => (s === 'lagging' ? ' lag' : s === 'leading' ? ' lead' : '');
+/** A PF with its sense; — on a line with no current, which has no PF (as the board table prints it). */
+const pfCell = (pf: number, sense: PowerFactorSense): string => (sense === 'none' ? '—' : `${fixed(pf, 3)}${senseWord(sense)}`);
+/** A change of φ, in degrees with its sign. */
+const angleCell = (deg: number): string => `${signed(deg, 1)}°`;
 /** A difference with its sign; a figure that rounds to zero reads as plain zero. */
 const signed = (x: number, d: number): string => {
   const s = fixed(x, d);
@@ -56,12 +60,12 @@ function workingTable(r: HandCheckResult, label: Label): ReportBlock {
       fixed(p.kW, 2),
       fixed(p.kvarBefore, 2),
       orDash(p.tanBefore, 3),
-      fixed(p.pfBefore, 3),
+      p.kW === 0 && p.kvarBefore === 0 ? '—' : fixed(p.pfBefore, 3),
       ...(target !== null ? [orDash(p.requiredKvar, 2)] : []),
       fixed(p.capacitorKvar, 2),
       fixed(p.kvarAfter, 2),
       orDash(p.tanAfter, 3),
-      `${fixed(p.pfAfter, 3)}${senseWord(p.senseAfter)}`,
+      pfCell(p.pfAfter, p.senseAfter),
     ]),
     note: `Qc = P·(tan φ1 − tan φ2) and Q' = Q − Qc, with every phase at ${fixed(v, 1)} V and a line-pair branch counted half on each of its two lines.`,
   };
@@ -81,21 +85,60 @@ function triangleTable(r: HandCheckResult, label: Label): ReportBlock {
   };
 }
 
-function comparedTable(r: HandCheckResult, label: Label): ReportBlock {
+/** The PF difference as printed: — where either side has no PF, the turn of φ where it crosses unity, else solved − textbook. */
+function pfDifferenceCell(l: HandCheckResult['lines'][number]): string {
+  if (l.senseTextbook === 'none' || l.senseSolved === 'none') return '—';
+  return l.crossesUnity ? `crosses unity, φ ${angleCell(l.angleDeg.difference)}` : signed(l.pf.difference, 3);
+}
+
+/** The board's PF difference, worded as a line's: a board lagging by hand and leading as solved crosses unity. */
+function boardPfDifferenceCell(r: HandCheckResult): string {
+  const [t, s] = [r.boardPower.textbook, r.boardPower.solved];
+  const turns = (t.sense === 'lagging' && s.sense === 'leading') || (t.sense === 'leading' && s.sense === 'lagging');
+  if (!turns) return signed(r.boardPf.difference, 3);
+  const phi = (p: { kW: number; kvar: number }) => (Math.atan2(p.kvar, Math.abs(p.kW)) * 180) / Math.PI;
+  return `crosses unity, φ ${angleCell(phi(s) - phi(t))}`;
+}
+
+/**
+ * The rows of hand figures against the solved board — per line its current and PF, the neutral, the
+ * board PF — as both the report and `trivar check`'s text print them (the line named on each row).
+ * @param label the board's phase labels @defaultValue A/B/C as the data keys
+ */
+export function handCheckComparedRows(r: HandCheckResult, label: Label = (t) => t): string[][] {
+  checkObjectArgument(r, 'r', 'a hand check from checkHandFigures(...)', ['lines', 'neutralA', 'boardPf', 'boardPower']);
   const rows: string[][] = [];
   for (const l of r.lines) {
     rows.push([label(l.phase), 'current A', orDash(l.currentA.yours, 1), fixed(l.currentA.textbook, 1), fixed(l.currentA.solved, 1), signed(l.currentA.difference, 1)]);
-    rows.push([label(l.phase), 'PF', orDash(l.pf.yours, 3), `${fixed(l.pf.textbook, 3)}${senseWord(l.senseTextbook)}`, `${fixed(l.pf.solved, 3)}${senseWord(l.senseSolved)}`, signed(l.pf.difference, 3)]);
+    rows.push([label(l.phase), 'PF', orDash(l.pf.yours, 3), pfCell(l.pf.textbook, l.senseTextbook), pfCell(l.pf.solved, l.senseSolved), pfDifferenceCell(l)]);
   }
   if (r.neutralA) rows.push(['N', 'current A', orDash(r.neutralA.yours, 1), fixed(r.neutralA.textbook, 1), fixed(r.neutralA.solved, 1), signed(r.neutralA.difference, 1)]);
-  rows.push(['board', 'PF (vector)', orDash(r.boardPf.yours, 3), powerFactorText(r.boardPower.textbook), powerFactorText(r.boardPower.solved), signed(r.boardPf.difference, 3)]);
+  rows.push(['board', 'PF (vector)', orDash(r.boardPf.yours, 3), powerFactorText(r.boardPower.textbook), powerFactorText(r.boardPower.solved), boardPfDifferenceCell(r)]);
+  return rows;
+}
+
+/** Where the crossing is told by φ, a note says what φ is. */
+const angleNote = (r: HandCheckResult): string =>
+  r.lines.some((l) => l.crossesUnity) ? ' A PF that crosses unity (lagging one way, leading the other) is compared by its angle φ = atan(Q/|P|), lagging positive, in degrees.' : '';
+
+function comparedTable(r: HandCheckResult, label: Label): ReportBlock {
+  const rows = handCheckComparedRows(r, label);
   return {
     kind: 'table',
     caption: 'Predicted against solved, with your capacitors in',
     columns: [{ label: 'Line' }, { label: 'Figure' }, num('Yours'), num('Textbook'), num('Solved'), num('Solved − textbook')],
     rows,
-    note: 'Yours: the figures you expected (— where none given). Textbook: the per-phase method above. Solved: the board as trivar solves it with exactly your equipment.',
+    note: `Yours: the figures you expected (— where none given). Textbook: the per-phase method above. Solved: the board as trivar solves it with exactly your equipment. A line with no current has no PF (—).${angleNote(r)}`,
   };
+}
+
+/**
+ * One effect's share of a line's PF difference: — on a line with no current; on a line whose PF crosses
+ * unity the change of φ in degrees (the PF's own changes would not add up across the turn), else the PF's.
+ */
+function effectPfCell(line: HandCheckResult['lines'][number], share: { readonly pf: number; readonly angleDeg: number }): string {
+  if (line.senseTextbook === 'none' && line.senseSolved === 'none') return '—';
+  return line.crossesUnity ? angleCell(share.angleDeg) : signed(share.pf, 3);
 }
 
 /**
@@ -110,14 +153,14 @@ export function handCheckEffectRows(r: HandCheckResult): string[][] {
       e.title,
       ...e.lines.map((l) => signed(l.currentA, 1)),
       ...(hasN ? [e.neutralA === null ? '—' : signed(e.neutralA, 1)] : []),
-      ...e.lines.map((l) => signed(l.pf, 3)),
+      ...e.lines.map((l, k) => effectPfCell(r.lines[k]!, l)),
       signed(e.boardPf, 3),
     ]),
     [
       'total (solved − textbook)',
       ...r.lines.map((l) => signed(l.currentA.difference, 1)),
       ...(hasN ? [signed(r.neutralA!.difference, 1)] : []),
-      ...r.lines.map((l) => signed(l.pf.difference, 3)),
+      ...r.lines.map((l) => effectPfCell(l, { pf: l.pf.difference, angleDeg: l.angleDeg.difference })),
       signed(r.boardPf.difference, 3),
     ],
   ];
@@ -130,7 +173,7 @@ function effectsTable(r: HandCheckResult, label: Label): ReportBlock {
     caption: 'Where each difference comes from',
     columns: [{ label: 'Effect' }, ...phases.map((p) => num(`${p} A`)), ...(r.neutralA !== null ? [num('N A')] : []), ...phases.map((p) => num(`${p} PF`)), num('Board PF')],
     rows: handCheckEffectRows(r),
-    note: 'Each effect is switched on in turn, in this order, and the board solved again; its size is how far it moves each figure, so the sizes add up to the whole difference.',
+    note: `Each effect is switched on in turn, in this order, and the board solved again; its size is how far it moves each figure, so the sizes add up to the whole difference.${angleNote(r)}`,
   };
 }
 
