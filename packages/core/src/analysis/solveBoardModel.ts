@@ -5,6 +5,8 @@ import { studyOpenNeutral } from './studyOpenNeutral.js';
 import type { BoardResult } from './boardResult.js';
 import { assertFiniteResult } from './assertFiniteResult.js';
 import { assertBoardModel } from '../board/modelGuards.js';
+import { checkOptionKeys } from '../_internal/argumentChecks.js';
+import { SOLVE_OPTION_KEYS } from '../network/solveOptions.js';
 
 export interface SolveBoardOptions extends SolveOptions {
   /**
@@ -21,6 +23,7 @@ export interface SolveBoardOptions extends SolveOptions {
  */
 export function solveBoardModel(board: Board, options: SolveBoardOptions = {}): BoardResult {
   assertBoardModel(board);
+  checkOptionKeys(options, 'options', [...SOLVE_OPTION_KEYS, 'openNeutral']);
   const result = analyseSolution(solveNetwork(board, options));
   const wantOpen = options.openNeutral ?? board.studies.openNeutral;
   return assertFiniteResult(wantOpen ? { ...result, openNeutral: studyOpenNeutral(board, options) } : result);

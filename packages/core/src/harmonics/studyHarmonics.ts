@@ -11,6 +11,8 @@ import type { Board, BoardLoad } from '../board/boardModel.js';
 import { abs, add } from '../complex.js';
 import { InputError, inputIssue } from '../errors.js';
 import { compileBoard, solveCompiledBoard, solveNetwork, type NetworkSolution, type SolveOptions } from '../network/solveNetwork.js';
+import { resolveSolveOptions, SOLVE_OPTION_KEYS } from '../network/solveOptions.js';
+import { checkListArgument, checkNumberArgument, checkOptionKeys } from '../_internal/argumentChecks.js';
 import { CompiledNetworkCache } from '../network/compiledNetworkCache.js';
 import { NEGLIGIBLE_OHMS } from '../network/installationCircuit.js';
 import { addInstalledBank, installedBankLayout, ordersPresent, resolveHarmonicModel, stateKey, type BankModel, type HarmonicModel } from './harmonicModel.js';
@@ -37,6 +39,24 @@ export interface HarmonicsOptions {
   readonly scanOrders?: readonly number[];
   /** Most networks scanned from one bank's board with the other banks switched. @defaultValue HARMONICS_DEFAULTS.jointStateLimit */
   readonly jointStateLimit?: number;
+}
+
+const HARMONICS_OPTION_KEYS = ['solve', 'scanOrders', 'jointStateLimit'];
+
+/**
+ * The options of a harmonic study checked before any solve: a misspelt key would otherwise run the study
+ * on its defaults without a word.
+ * @param extraKeys keys a particular entry takes besides the common ones (`scanBoards` on an installation)
+ * @throws {InputError} naming `options`, `options.<key>` or `options.solve.<key>`
+ */
+export function checkHarmonicsOptions(options: unknown, extraKeys: readonly string[] = []): asserts options is HarmonicsOptions | undefined {
+  checkOptionKeys(options, 'options', [...HARMONICS_OPTION_KEYS, ...extraKeys]);
+  if (options?.solve !== undefined) {
+    checkOptionKeys(options.solve, 'options.solve', SOLVE_OPTION_KEYS);
+    resolveSolveOptions(options.solve as SolveOptions, 'options.solve');
+  }
+  if (options?.scanOrders !== undefined) checkListArgument(options.scanOrders, 'options.scanOrders', 'a list of harmonic orders, numbers of at least 1', (h) => typeof h === 'number' && Number.isFinite(h) && h >= 1);
+  if (options?.jointStateLimit !== undefined) checkNumberArgument(options.jointStateLimit, 'options.jointStateLimit', 'a whole number of networks, at least 1', (n) => Number.isInteger(n) && n >= 1);
 }
 
 /**
@@ -329,6 +349,7 @@ export function harmonicsWarnings({ scan, neutral, voltageDistortion, duty, tdd,
  */
 export function analyseHarmonics(board: Board, model: HarmonicModel, options: HarmonicsOptions = {}): HarmonicsReport {
   assertBoardModel(board);
+  checkHarmonicsOptions(options);
   // One set of compiled networks for every solve: the study's and each duty state's, at every order.
   const networks = new CompiledNetworkCache();
   const orders = solveHarmonicOrders(board, model, options.solve, networks);
@@ -401,6 +422,7 @@ function checkBank(spec: HarmonicsBoardSpec, board: Board): void {
  * @throws {NumericalError} when a solve fails, or reason `collapsed` when the board's supply has collapsed
  */
 export function studyBoardHarmonics(spec: HarmonicsBoardSpec, options: HarmonicsOptions = {}): HarmonicsReport {
+  checkHarmonicsOptions(options);
   const plain = normaliseBoard(spec);
   checkBank(spec, plain);
   const withBank = spec.harmonics?.bank ? addInstalledBank(plain, spec.harmonics.bank) : { board: plain, model: null };

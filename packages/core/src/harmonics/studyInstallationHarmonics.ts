@@ -36,6 +36,7 @@ import {
   boardPowerFactor,
   capacitorDuty,
   checkedOrders,
+  checkHarmonicsOptions,
   harmonicsWarnings,
   neutralCheck,
   spectraOf,
@@ -224,6 +225,7 @@ export function resolveInstallationHarmonics(spec: HarmonicsInstallationSpec, pl
  * @throws {NumericalError} when a solve fails, or reason `collapsed` when a board's supply has collapsed
  */
 export function studyInstallationHarmonicsSpec(spec: HarmonicsInstallationSpec, options: HarmonicsOptions = {}): InstallationHarmonicsReport {
+  checkHarmonicsOptions(options);
   return analyseInstallationHarmonics(resolveInstallationHarmonics(spec), options);
 }
 
@@ -238,6 +240,7 @@ export interface InstallationHarmonicsOptions extends HarmonicsOptions {
  */
 export function analyseInstallationHarmonics(model: InstallationHarmonicModel, options: InstallationHarmonicsOptions = {}): InstallationHarmonicsReport {
   checkObjectArgument(model, 'model', 'an installation harmonic model from resolveInstallationHarmonics(...)', ['installation', 'models', 'bankBoards']);
+  checkHarmonicsOptions(options, ['scanBoards']);
   const { installation, models, bankBoards } = model;
   // One set of compiled networks for every solve: the study's and each bank's duty states', at every order.
   const networks = new CompiledNetworkCache();
