@@ -26,7 +26,8 @@ import { checkVoltageDistortion } from './voltageDistortion.js';
 import { HARMONICS_DEFAULTS } from './harmonicsDefaults.js';
 import type { HarmonicsBoardSpec } from './harmonicsSpec.js';
 import { harmonicsCautions, harmonicsWarningText, harmonicsWording, neutralPractice } from './harmonicsWording.js';
-import type { CapacitorDuty, DistortionReading, DutyCase, DutyCondition, HarmonicLineReading, HarmonicsReport, HarmonicsWarning, NeutralCheck, ResonanceScan, TddCheck, VoltageDistortionCheck } from './harmonicsResult.js';
+import { powerReading } from '../analysis/powerReading.js';
+import type { CapacitorDuty, DistortionReading, DutyCase, DutyCondition, HarmonicLineReading, HarmonicsPowerFactor, HarmonicsReport, HarmonicsWarning, NeutralCheck, ResonanceScan, TddCheck, VoltageDistortionCheck } from './harmonicsResult.js';
 import { conventionsOf } from '../board/conventions/boardConventions.js';
 import { regionWords, type RegionWords } from '../board/conventions/regionWords.js';
 import { labelIn } from '../board/conventions/phaseNames.js';
@@ -363,18 +364,23 @@ export function analyseHarmonics(board: Board, model: HarmonicModel, options: Ha
   const phaseNames = conventionsOf(board).phaseNames;
   const voltageDistortion = checkVoltageDistortion(lines, lineToLine, board.hasNeutral, model.voltageDistortionLimits);
   // Warnings name phases, pairs and branches the way the board file names them (L1-N or A-N).
-  const warnings = harmonicsWarnings({ scan, neutral, voltageDistortion, duty, tdd, splitPhase: board.system === 'split-phase' }, (term) => labelIn(phaseNames, term));
+  const label = (term: string) => labelIn(phaseNames, term);
+  const warnings = harmonicsWarnings({ scan, neutral, voltageDistortion, duty, tdd, splitPhase: board.system === 'split-phase' }, label);
+  const state = model.bank ? `every bank step on (${combinationLabel(model.bank, model.bank.stepLoads.map(() => true))})` : 'as given';
+  const powerFactor = boardPowerFactor(orders, lines);
+  const leads = leadingStateWarning(lines, powerFactor, state, model.bank ? allOnKvar(scan) : null, label);
+  if (leads) warnings.push(leads);
   return {
     board: board.name,
     phaseNames,
     frequencyHz: board.frequencyHz,
     orders: orders.slice(1).map((o) => o.order),
-    state: model.bank ? `every bank step on (${combinationLabel(model.bank, model.bank.stepLoads.map(() => true))})` : 'as given',
+    state,
     lines,
     lineToLine,
     hasNeutral: board.hasNeutral,
     neutral,
-    powerFactor: boardPowerFactor(orders, lines),
+    powerFactor,
     tdd,
     voltageDistortion,
     scan,
@@ -386,15 +392,44 @@ export function analyseHarmonics(board: Board, model: HarmonicModel, options: Ha
   };
 }
 
-/** Board figures, arithmetic over the lines: ΣP / Σ(V·I) with every order, and at the fundamental alone. */
+/** Board figures, arithmetic over the lines: ΣP / Σ(V·I) with every order, and at the fundamental alone; the sense that of ΣQ1. */
 export function boardPowerFactor(orders: readonly OrderSolution[], lines: readonly HarmonicLineReading[]): HarmonicsReport['powerFactor'] {
   const watts = lines.reduce((s, l) => s + l.kW * 1000, 0);
   const apparent = lines.reduce((s, l) => s + l.voltage.rms * l.current.rms, 0);
   const fundamentalLines = readLines([orders[0]!]);
   const apparent1 = fundamentalLines.reduce((s, l) => s + l.voltage.rms * l.current.rms, 0);
+  const fundamental = powerReading({ re: lines.reduce((s, l) => s + l.fundamentalKW, 0) * 1000, im: lines.reduce((s, l) => s + l.fundamentalKvar, 0) * 1000 });
   return {
     true: apparent > 0 ? watts / apparent : null,
     displacement: apparent1 > 0 ? fundamentalLines.reduce((s, l) => s + l.kW * 1000, 0) / apparent1 : null,
+    displacementSense: apparent1 > 0 ? fundamental.sense : 'none',
+    fundamentalKW: fundamental.kW,
+    fundamentalKvar: fundamental.kvar,
+  };
+}
+
+/** What the bank delivers with every step on, at nominal voltage (the scan's state with every step on); null without that state. */
+export function allOnKvar(scan: ResonanceScan): number | null {
+  return scan.combinations.find((c) => c.steps.every(Boolean))?.capacitorKvar ?? null;
+}
+
+/**
+ * The studied state leaves lines leading at the fundamental: the bank, every step on, delivers more than
+ * those lines' loads draw and capacitive kvar goes back up the supply (as `bank-in-service-exceeds-loads`
+ * says of a bank in service on an installation's board). Null where no line leads or no bank is on.
+ * @param bankKvar what the bank in the studied state delivers at nominal voltage, kvar (the scan's figure)
+ */
+export function leadingStateWarning(lines: readonly HarmonicLineReading[], power: HarmonicsPowerFactor, state: string, bankKvar: number | null, label: (term: string) => string): HarmonicsWarning | null {
+  if (bankKvar === null || !(bankKvar > 0)) return null;
+  // As printed: a line whose vars show as 0.00 or that carries power back has no lead to speak of (powerFactorText.ts).
+  const leading = lines.filter((l) => l.displacementSense === 'leading' && l.fundamentalKvar <= -0.005 && l.fundamentalKW > 0);
+  if (leading.length === 0) return null;
+  const named = leading.map((l) => `${label(l.phase)} ${Math.abs(l.displacementPf!).toFixed(3)}`);
+  return {
+    code: 'bank-state-leads',
+    message: harmonicsWarningText.leadingState(state, named, bankKvar, power.fundamentalKvar),
+    value: power.fundamentalKvar,
+    threshold: 0,
   };
 }
 

@@ -35,8 +35,10 @@ import {
   assumptions,
   boardPowerFactor,
   capacitorDuty,
+  allOnKvar,
   checkedOrders,
   checkHarmonicsOptions,
+  leadingStateWarning,
   harmonicsWarnings,
   neutralCheck,
   spectraOf,
@@ -285,6 +287,10 @@ export function analyseInstallationHarmonics(model: InstallationHarmonicModel, o
     const duty = capacitorDuty(fundamental.boards[b]!.board, models[b]!, installationDutySolver(models, b, networks, options.solve), bankBoards.length > 1, jointScan ? switchedOtherBanks(jointScan, names, models) : undefined);
     warnings.push(...harmonicsWarnings({ scan, neutral: null, voltageDistortion: null, duty, tdd: null }, label).map((w) => ({ ...w, board: names[b]! })));
     if (jointScan) warnings.push(...jointResonanceWarnings(names[b]!, scan, jointScan).map((w) => ({ ...w, board: names[b]! })));
+    // Read at the board's incoming feeder, every bank of the installation on (the state the figures are for).
+    const bank = models[b]!.bank;
+    const leads = bank ? leadingStateWarning(boards[b]!.lines, boards[b]!.powerFactor, `every step of its bank on (${combinationLabel(bank, bank.stepLoads.map(() => true))})`, allOnKvar(scan), label) : null;
+    if (leads) warnings.push({ ...leads, board: names[b]! });
     return { board: names[b]!, scan, jointScan, capacitorDuty: duty };
   });
   const tdd = tddCheck(main, models[0]!, boards[0]!.lines);
