@@ -5,6 +5,7 @@ import { feedingOrder } from '../network/installationCircuit.js';
 import { ratedKvarInService } from '../network/installationModel.js';
 import { analyseSolution } from './analyseSolution.js';
 import { bankOverLoadsWarning } from './boardWarnings.js';
+import { bankRatingWarningOn, boardNominalPair } from '../harmonics/bankRatingCheck.js';
 import { studyOpenNeutral } from './studyOpenNeutral.js';
 import type { BoardResult } from './boardResult.js';
 import type { BankInService } from '../board/boardModel.js';
@@ -29,7 +30,9 @@ export function analyseInstallation(solution: InstallationSolution, options: Ana
     const r = results[bank.boardIndex]!;
     const reading = bankReading(bank, r.board.name, r);
     const over = bankOverLoadsWarning(reading.deliveredKvar, r.totals.kvar);
-    if (over) results[bank.boardIndex] = { ...r, warnings: [...r.warnings, over] };
+    const rating = bankRatingWarningOn(bank, boardNominalPair(main));
+    const added = [over, rating].filter((w) => w !== null);
+    if (added.length) results[bank.boardIndex] = { ...r, warnings: [...r.warnings, ...added] };
     return reading;
   });
   const nameOf = (b: number) => solution.boards[b]!.board.name;

@@ -27,6 +27,7 @@ import { HARMONICS_DEFAULTS } from './harmonicsDefaults.js';
 import type { HarmonicsBoardSpec } from './harmonicsSpec.js';
 import { harmonicsCautions, harmonicsWarningText, harmonicsWording, neutralPractice } from './harmonicsWording.js';
 import { powerReading } from '../analysis/powerReading.js';
+import { bankRatingIssue, bankRatingWarningOn, boardNominalPair } from './bankRatingCheck.js';
 import type { CapacitorDuty, DistortionReading, DutyCase, DutyCondition, HarmonicLineReading, HarmonicsPowerFactor, HarmonicsReport, HarmonicsWarning, NeutralCheck, ResonanceScan, TddCheck, VoltageDistortionCheck } from './harmonicsResult.js';
 import { conventionsOf } from '../board/conventions/boardConventions.js';
 import { regionWords, type RegionWords } from '../board/conventions/regionWords.js';
@@ -421,8 +422,9 @@ export function allOnKvar(scan: ResonanceScan): number | null {
  */
 export function leadingStateWarning(lines: readonly HarmonicLineReading[], power: HarmonicsPowerFactor, state: string, bankKvar: number | null, label: (term: string) => string): HarmonicsWarning | null {
   if (bankKvar === null || !(bankKvar > 0)) return null;
-  // As printed: a line whose vars show as 0.00 or that carries power back has no lead to speak of (powerFactorText.ts).
-  const leading = lines.filter((l) => l.displacementSense === 'leading' && l.fundamentalKvar <= -0.005 && l.fundamentalKW > 0);
+  // As printed (powerFactorText.ts): a line whose vars show as 0.00 has no lead to speak of, and one that carries
+  // power back reads "export", not lead. A line carrying the bank alone (no active power) leads at 0.000.
+  const leading = lines.filter((l) => l.displacementSense === 'leading' && l.fundamentalKvar <= -0.005 && !(l.fundamentalKW <= -0.005));
   if (leading.length === 0) return null;
   const named = leading.map((l) => `${label(l.phase)} ${Math.abs(l.displacementPf!).toFixed(3)}`);
   return {
@@ -448,6 +450,9 @@ function checkBank(spec: HarmonicsBoardSpec, board: Board): void {
   if (!bank) return;
   const layout = installedBankLayout(board, bank.connection);
   if (!layout.ok) throw new InputError([inputIssue('not_applicable', 'harmonics.bank.connection', layout.expected, bank.connection)]);
+  // A spec handed in without parseBoard: the rating rule of the file (harmonicsRules.ts), here too.
+  const rating = bankRatingIssue(bank, boardNominalPair(board), 'harmonics.bank.ratedV');
+  if (rating) throw new InputError([rating]);
 }
 
 /**
@@ -464,5 +469,7 @@ export function studyBoardHarmonics(spec: HarmonicsBoardSpec, options: Harmonics
   const model = resolveHarmonicModel(spec, withBank.board, withBank.model);
   // Harmonics of a collapsed state describe nothing that can exist (as the correction study refuses it).
   assertViableBoard(withBank.board);
-  return analyseHarmonics(withBank.board, model, options);
+  const report = analyseHarmonics(withBank.board, model, options);
+  const rating = spec.harmonics?.bank ? bankRatingWarningOn(spec.harmonics.bank, boardNominalPair(plain)) : null;
+  return rating ? { ...report, warnings: [...report.warnings, rating] } : report;
 }

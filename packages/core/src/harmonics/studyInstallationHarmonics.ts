@@ -48,6 +48,7 @@ import {
   type SwitchedOtherBanks,
 } from './studyHarmonics.js';
 import { checkObjectArgument } from '../_internal/argumentChecks.js';
+import { bankRatingWarningOn, boardNominalPair } from './bankRatingCheck.js';
 
 /** What the study reads of an installation file: the installation, its loads' harmonic fields and the `harmonics:` section. */
 export type HarmonicsInstallationSpec = Omit<InstallationBaseSpec, 'boards'> & {
@@ -228,7 +229,15 @@ export function resolveInstallationHarmonics(spec: HarmonicsInstallationSpec, pl
  */
 export function studyInstallationHarmonicsSpec(spec: HarmonicsInstallationSpec, options: HarmonicsOptions = {}): InstallationHarmonicsReport {
   checkHarmonicsOptions(options);
-  return analyseInstallationHarmonics(resolveInstallationHarmonics(spec), options);
+  const resolved = resolveInstallationHarmonics(spec);
+  const report = analyseInstallationHarmonics(resolved, options);
+  // Ratings well above the voltage across the capacitors (refused far above by the file's rules): said on the bank's board.
+  const nominal = boardNominalPair(resolved.installation.main);
+  const rating = (spec.harmonics?.banks ?? []).flatMap((bank) => {
+    const w = bankRatingWarningOn(bank, nominal);
+    return w ? [{ ...w, board: bank.board }] : [];
+  });
+  return rating.length ? { ...report, warnings: [...report.warnings, ...rating] } : report;
 }
 
 export interface InstallationHarmonicsOptions extends HarmonicsOptions {
