@@ -18,6 +18,7 @@ import {
   solveInstallation,
   solveNetwork,
   studyHarmonics,
+  studyOpenNeutral,
 } from '@trivar/core';
 
 /** An invented cold store: a main board and one sub-board of uneven single-phase loads. */
@@ -94,6 +95,14 @@ describe('other entry points with option objects', () => {
     expect(refusal(() => solveBoard(bakery, { openNuetral: true } as never)).message).toContain('options.openNuetral: expected one of the keys taken here ("tolerance", "maxIterations", "lowVoltageThreshold", "openNeutral"); nearest: "openNeutral"');
     expect(refusal(() => solveInstallation(coldStore, { tolerance: 0.5 })).paths).toEqual(['options.tolerance']);
     expect(refusal(() => solveNetwork(normaliseBoard(parseBoard(bakery)), { lowVoltageThreshold: 1.5 })).message).toContain('options.lowVoltageThreshold: expected a number above 0 and at most 1 (per unit) (received 1.5)');
+  });
+
+  it('the solver itself and the broken-neutral study refuse a key they do not take', () => {
+    const board = normaliseBoard(parseBoard(bakery));
+    expect(refusal(() => solveNetwork(board, { maxIteration: 50 } as never)).message).toContain('options.maxIteration: expected one of the keys taken here ("tolerance", "maxIterations", "lowVoltageThreshold"); nearest: "maxIterations"');
+    expect(refusal(() => studyOpenNeutral(board, { openNeutral: true } as never)).paths).toEqual(['options.openNeutral']);
+    // openNeutral where it belongs still turns the study on.
+    expect(solveBoard(bakery, { openNeutral: true }).openNeutral?.applicable).toBe(true);
   });
 
   it('harmonic study options: the solve options inside them too', () => {

@@ -5,6 +5,7 @@ import { feedingOrder } from '../network/installationCircuit.js';
 import { ratedKvarInService } from '../network/installationModel.js';
 import { analyseSolution } from './analyseSolution.js';
 import { bankOverLoadsWarning } from './boardWarnings.js';
+import { solveOptionsOf } from '../network/solveOptions.js';
 import { bankRatingWarningOn, boardNominalPair } from '../harmonics/bankRatingCheck.js';
 import { studyOpenNeutral } from './studyOpenNeutral.js';
 import type { BoardResult } from './boardResult.js';
@@ -23,7 +24,7 @@ export function analyseInstallation(solution: InstallationSolution, options: Ana
   const wantOpen = options.openNeutral ?? main.studies.openNeutral;
   const results: BoardResult[] = solution.boards.map((s) => {
     const r = analyseSolution(s);
-    return wantOpen ? { ...r, openNeutral: studyOpenNeutral(s.board, options) } : r;
+    return wantOpen ? { ...r, openNeutral: studyOpenNeutral(s.board, solveOptionsOf(options)) } : r;
   });
   // A board whose bank in service delivers more than its own circuits draw says so among its warnings.
   const banks = (installation.banksInService ?? []).map((bank) => {

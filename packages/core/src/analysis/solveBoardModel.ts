@@ -6,7 +6,7 @@ import type { BoardResult } from './boardResult.js';
 import { assertFiniteResult } from './assertFiniteResult.js';
 import { assertBoardModel } from '../board/modelGuards.js';
 import { checkOptionKeys } from '../_internal/argumentChecks.js';
-import { SOLVE_OPTION_KEYS } from '../network/solveOptions.js';
+import { SOLVE_OPTION_KEYS, solveOptionsOf } from '../network/solveOptions.js';
 
 export interface SolveBoardOptions extends SolveOptions {
   /**
@@ -24,7 +24,7 @@ export interface SolveBoardOptions extends SolveOptions {
 export function solveBoardModel(board: Board, options: SolveBoardOptions = {}): BoardResult {
   assertBoardModel(board);
   checkOptionKeys(options, 'options', [...SOLVE_OPTION_KEYS, 'openNeutral']);
-  const result = analyseSolution(solveNetwork(board, options));
+  const result = analyseSolution(solveNetwork(board, solveOptionsOf(options)));
   const wantOpen = options.openNeutral ?? board.studies.openNeutral;
-  return assertFiniteResult(wantOpen ? { ...result, openNeutral: studyOpenNeutral(board, options) } : result);
+  return assertFiniteResult(wantOpen ? { ...result, openNeutral: studyOpenNeutral(board, solveOptionsOf(options)) } : result);
 }

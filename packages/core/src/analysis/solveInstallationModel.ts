@@ -5,7 +5,7 @@ import type { InstallationResult } from './installationResult.js';
 import { assertFiniteResult } from './assertFiniteResult.js';
 import { assertInstallationModel } from '../board/modelGuards.js';
 import { checkOptionKeys } from '../_internal/argumentChecks.js';
-import { SOLVE_OPTION_KEYS } from '../network/solveOptions.js';
+import { SOLVE_OPTION_KEYS, solveOptionsOf } from '../network/solveOptions.js';
 
 export type SolveInstallationOptions = AnalyseInstallationOptions;
 
@@ -16,5 +16,5 @@ export type SolveInstallationOptions = AnalyseInstallationOptions;
 export function solveInstallationModel(installation: Installation, options: SolveInstallationOptions = {}): InstallationResult {
   assertInstallationModel(installation);
   checkOptionKeys(options, 'options', [...SOLVE_OPTION_KEYS, 'openNeutral']);
-  return assertFiniteResult(analyseInstallation(solveInstallationNetwork(installation, options), options));
+  return assertFiniteResult(analyseInstallation(solveInstallationNetwork(installation, solveOptionsOf(options)), options));
 }

@@ -28,6 +28,16 @@ export interface ResolvedSolveOptions {
 export const SOLVE_OPTION_KEYS: readonly string[] = ['tolerance', 'maxIterations', 'lowVoltageThreshold'];
 
 /**
+ * Only the solve options of a larger options object (`openNeutral` beside them): what a study hands
+ * on to the solver, whose entry refuses keys it does not take.
+ */
+export function solveOptionsOf(options: SolveOptions | undefined): SolveOptions {
+  if (!options) return {};
+  const { tolerance, maxIterations, lowVoltageThreshold } = options;
+  return { ...(tolerance !== undefined ? { tolerance } : {}), ...(maxIterations !== undefined ? { maxIterations } : {}), ...(lowVoltageThreshold !== undefined ? { lowVoltageThreshold } : {}) };
+}
+
+/**
  * The options with their defaults.
  * @param argument how the caller names the options, for the error (`options`, `options.solve`)
  * @throws {InputError} naming `<argument>.<field>` for a value outside its range
