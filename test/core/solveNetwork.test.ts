@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { NumericalError, normaliseBoard, parseBoard, solveBoard, solveNetwork } from '@trivar/core';
+import { InputError, NumericalError, normaliseBoard, parseBoard, solveBoard, solveNetwork } from '@trivar/core';
 
 const supply4 = { system: 'three-phase-4wire', voltage: { lineToLine: 400 }, frequencyHz: 50 } as const;
 const vln = 400 / Math.sqrt(3);
@@ -98,8 +98,10 @@ describe('solveNetwork: numerical trouble is an error, not an answer', () => {
     expect(() => solveNetwork(heavy, { maxIterations: 2 })).toThrow(/did not settle after 2 iterations/);
   });
   it('rejects nonsense options naming them', () => {
-    expect(() => solveNetwork(heavy, { maxIterations: 0 })).toThrow(/maxIterations must be a positive integer \(received 0\)/);
-    expect(() => solveNetwork(heavy, { tolerance: 0 })).toThrow(/tolerance/);
+    // An InputError naming the option's path and its range, as every other option of the library.
+    expect(() => solveNetwork(heavy, { maxIterations: 0 })).toThrow(InputError);
+    expect(() => solveNetwork(heavy, { maxIterations: 0 })).toThrow(/options\.maxIterations: expected a whole number of iterations, at least 1 \(received 0\)/);
+    expect(() => solveNetwork(heavy, { tolerance: 0 })).toThrow(/options\.tolerance: expected a number above 0 and below 0\.1/);
   });
   it('names the node of a resonant (singular) network', () => {
     const board = normaliseBoard(parseBoard({ supply: supply4, feeder: { neutral: { r: 0, x: 10 } }, loads: [{ name: 'cap', connection: 'A-N', ohms: { r: 0, x: -10 } }] }));

@@ -25,8 +25,10 @@ describe('an idle board in a harmonic study', () => {
       expect(line.current.thdPercent).toBeNull();
       expect(line.truePf).toBeNull();
       expect(line.displacementPf).toBeNull();
+      expect(line.displacementSense).toBe('none');
     }
-    expect(shed.powerFactor).toEqual({ true: null, displacement: null });
+    // No current: no PF and no sense (the sense fields were added beside the figures; nothing flows, so 'none').
+    expect(shed.powerFactor).toEqual({ true: null, displacement: null, displacementSense: 'none', fundamentalKW: 0, fundamentalKvar: 0 });
     // The loaded board beside it still reads its figures.
     const house = r.boards.find((b) => b.board === 'house panel')!;
     expect(house.lines[0]!.current.rms).toBeGreaterThan(30);

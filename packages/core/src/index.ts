@@ -275,7 +275,7 @@ export { withHarmonicNeutral } from './boardFile/rebalanceHarmonicNeutral.js';
 // Drawings and reports (SVG/HTML/Markdown text; the CLI writes the files)
 export type { PhasorDiagramOptions } from './render/renderPhasorDiagram.js';
 export { renderPhasorDiagram } from './render/renderPhasorDiagram.js';
-export { powerFactorText, isExportKW, signedPfText, assumedPfNote, linePfText, exportingLinesNote, isExportCurrentA } from './render/powerFactorText.js';
+export { powerFactorText, displacementPfText, isExportKW, signedPfText, assumedPfNote, linePfText, exportingLinesNote, isExportCurrentA } from './render/powerFactorText.js';
 export type { SequenceDiagramOptions } from './render/renderSequenceDiagram.js';
 export { renderSequenceDiagram } from './render/renderSequenceDiagram.js';
 export type { CurrentTriangleOptions, LineCurrentParts } from './render/renderCurrentTriangles.js';

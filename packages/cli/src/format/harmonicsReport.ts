@@ -1,5 +1,5 @@
 /** HarmonicsReport → the human-readable report of `trivar harmonics`. */
-import { busFigureTexts, conditionWords, labelIn, signedPfText, voltageBasisWords, type DistortionReading, type HarmonicsReport, type ResonanceScan, type CapacitorDuty, type TddCheck, type NeutralCheck } from '@trivar/core';
+import { busFigureTexts, conditionWords, displacementPfText, labelIn, signedPfText, type HarmonicsPowerFactor, voltageBasisWords, type DistortionReading, type HarmonicsReport, type ResonanceScan, type CapacitorDuty, type TddCheck, type NeutralCheck } from '@trivar/core';
 import { fixed, renderTable, section, textWidth } from './textTable.js';
 import { REPORT_WIDTH } from './wrapText.js';
 import { wrapText } from './wrapText.js';
@@ -55,7 +55,7 @@ export function voltageTable(r: BoardReadings): string {
       r.lineToLine.map((p) => [label(p.pair), fixed(p.voltage.rms, 1), ...figures(p.pair, p.voltage)]),
     );
   const rows = [
-    ...r.lines.map((l) => [label(`${l.phase}-N`), fixed(l.voltage.rms, 1), ...figures(`${l.phase}-N`, l.voltage), signedPfText(l.truePf), signedPfText(l.displacementPf)]),
+    ...r.lines.map((l) => [label(`${l.phase}-N`), fixed(l.voltage.rms, 1), ...figures(`${l.phase}-N`, l.voltage), signedPfText(l.truePf), displacementPfText(l.displacementPf, { sense: l.displacementSense, kW: l.fundamentalKW, kvar: l.fundamentalKvar })]),
     ...r.lineToLine.map((p) => [label(p.pair), fixed(p.voltage.rms, 1), ...figures(p.pair, p.voltage), '', '']),
   ];
   return renderTable(
@@ -197,7 +197,7 @@ export function renderHarmonicsReport(r: HarmonicsReport): string {
   out.push(section('Voltages and power factor at the board'));
   out.push(voltageTable(r));
   out.push(
-    prose(`board: true PF ${signedPfText(r.powerFactor.true)}, displacement PF ${signedPfText(r.powerFactor.displacement)} (ΣP / Σ V·I over the lines)`),
+    prose(`board: true PF ${signedPfText(r.powerFactor.true)}, displacement PF ${boardDisplacementText(r.powerFactor)} (ΣP / Σ V·I over the lines)`),
   );
   const v = r.voltageDistortion;
   const overBuses = v.buses.filter((b) => !b.ok).map((b) => labeller(r)(b.bus));
@@ -230,4 +230,9 @@ export function renderHarmonicsReport(r: HarmonicsReport): string {
   out.push(section('Cautions'));
   out.push(...r.cautions.map((c) => prose(c, '  - ')));
   return `${out.join('\n')}\n`;
+}
+
+/** The board's displacement PF with its sense (of ΣQ1 over the lines), as the line rows print theirs. */
+export function boardDisplacementText(pf: HarmonicsPowerFactor): string {
+  return displacementPfText(pf.displacement, { sense: pf.displacementSense, kW: pf.fundamentalKW, kvar: pf.fundamentalKvar });
 }

@@ -7,7 +7,7 @@ import { jointCoverageWords, nearestWords, signedPfText, voltageBasisWords, type
 import { fixed, renderTable, renderTableWithin, section } from './textTable.js';
 import { wrapText } from './wrapText.js';
 import { treeName } from './boardTree.js';
-import { alikeStates, currentTable, dutyLines, labeller, neutralLines, prose, resonanceTitle, scanLine, scanTable, spectraLines, tddLines, voltageTable } from './harmonicsReport.js';
+import { alikeStates, boardDisplacementText, currentTable, dutyLines, labeller, neutralLines, prose, resonanceTitle, scanLine, scanTable, spectraLines, tddLines, voltageTable } from './harmonicsReport.js';
 
 
 /** The busbar voltage with the highest THD: its label and THD. */
@@ -132,7 +132,7 @@ export function renderInstallationHarmonicsReport(r: InstallationHarmonicsReport
     out.push(currentTable(readings));
     out.push(section(`Voltages and power factor at ${name}`));
     out.push(voltageTable(readings));
-    out.push(prose(`board: true PF ${signedPfText(b.powerFactor.true)}, displacement PF ${signedPfText(b.powerFactor.displacement)} (ΣP / Σ V·I over the lines)`));
+    out.push(prose(`board: true PF ${signedPfText(b.powerFactor.true)}, displacement PF ${boardDisplacementText(b.powerFactor)} (ΣP / Σ V·I over the lines)`));
     if (b.neutral) {
       out.push(section(`Neutral of the feeder into ${name}`));
       out.push(...neutralLines(b.neutral));

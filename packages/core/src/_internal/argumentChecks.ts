@@ -4,6 +4,7 @@
  * argument, never NaN carried into a verdict ("within") or a figure below absolute zero.
  */
 import { InputError, inputIssue } from '../errors.js';
+import { nearestKey } from './acceptedKeys.js';
 
 /** The InputError for one argument: "percent: expected a finite number (received NaN)". */
 export function argumentIssueError(argument: string, expected: string, received: unknown): InputError {
@@ -44,4 +45,25 @@ export function checkTextArgument(value: unknown, argument: string, expected: st
 /** @throws {InputError} naming `argument` unless `value` is one of `words` (a system, a region, a phase naming...) */
 export function checkWordArgument<W extends string>(value: unknown, argument: string, words: readonly W[]): asserts value is W {
   if (!(words as readonly unknown[]).includes(value)) throw argumentIssueError(argument, `one of ${words.map((w) => JSON.stringify(w)).join(', ')}`, value);
+}
+
+/**
+ * @throws {InputError} unless `value` is undefined (the defaults) or an object whose every key is one of
+ *   `accepted`: a misspelt option (`Board` for `board`) would otherwise run silently on the default. Each
+ *   unknown key is named at its path (`options.Board`) with the keys taken and the nearest one;
+ *   `elsewhere` says where a key that belongs to another argument goes (`measuredAt` → the study's target).
+ */
+export function checkOptionKeys(value: unknown, argument: string, accepted: readonly string[], elsewhere: Readonly<Record<string, string>> = {}): asserts value is Record<string, unknown> | undefined {
+  if (value === undefined) return;
+  if (!isPlainObject(value)) throw argumentIssueError(argument, `an options object (${accepted.map((k) => JSON.stringify(k)).join(', ')}), or nothing for the defaults`, value);
+  const unknown = Object.keys(value).filter((k) => !accepted.includes(k));
+  if (Object.hasOwn(value, '__proto__') && !unknown.includes('__proto__')) unknown.push('__proto__');
+  if (unknown.length === 0) return;
+  const issues = unknown.map((key) => {
+    const nearest = nearestKey(key, accepted);
+    const taken = accepted.length ? `one of the keys taken here (${accepted.map((k) => JSON.stringify(k)).join(', ')})` : 'no keys (this function takes no options yet)';
+    const hint = Object.hasOwn(elsewhere, key) ? `; ${elsewhere[key]}` : nearest ? `; nearest: ${JSON.stringify(nearest)}` : '';
+    return inputIssue('unknown_key', `${argument}.${key}`, `${taken}${hint}`, key);
+  });
+  throw new InputError(issues, `the ${argument} argument is not valid`);
 }

@@ -5,6 +5,8 @@ import { feedingOrder } from '../network/installationCircuit.js';
 import { ratedKvarInService } from '../network/installationModel.js';
 import { analyseSolution } from './analyseSolution.js';
 import { bankOverLoadsWarning } from './boardWarnings.js';
+import { solveOptionsOf } from '../network/solveOptions.js';
+import { bankRatingWarningOn, boardNominalPair } from '../harmonics/bankRatingCheck.js';
 import { studyOpenNeutral } from './studyOpenNeutral.js';
 import type { BoardResult } from './boardResult.js';
 import type { BankInService } from '../board/boardModel.js';
@@ -22,14 +24,16 @@ export function analyseInstallation(solution: InstallationSolution, options: Ana
   const wantOpen = options.openNeutral ?? main.studies.openNeutral;
   const results: BoardResult[] = solution.boards.map((s) => {
     const r = analyseSolution(s);
-    return wantOpen ? { ...r, openNeutral: studyOpenNeutral(s.board, options) } : r;
+    return wantOpen ? { ...r, openNeutral: studyOpenNeutral(s.board, solveOptionsOf(options)) } : r;
   });
   // A board whose bank in service delivers more than its own circuits draw says so among its warnings.
   const banks = (installation.banksInService ?? []).map((bank) => {
     const r = results[bank.boardIndex]!;
     const reading = bankReading(bank, r.board.name, r);
     const over = bankOverLoadsWarning(reading.deliveredKvar, r.totals.kvar);
-    if (over) results[bank.boardIndex] = { ...r, warnings: [...r.warnings, over] };
+    const rating = bankRatingWarningOn(bank, boardNominalPair(main));
+    const added = [over, rating].filter((w) => w !== null);
+    if (added.length) results[bank.boardIndex] = { ...r, warnings: [...r.warnings, ...added] };
     return reading;
   });
   const nameOf = (b: number) => solution.boards[b]!.board.name;

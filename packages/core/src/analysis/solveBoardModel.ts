@@ -5,6 +5,8 @@ import { studyOpenNeutral } from './studyOpenNeutral.js';
 import type { BoardResult } from './boardResult.js';
 import { assertFiniteResult } from './assertFiniteResult.js';
 import { assertBoardModel } from '../board/modelGuards.js';
+import { checkOptionKeys } from '../_internal/argumentChecks.js';
+import { SOLVE_OPTION_KEYS, solveOptionsOf } from '../network/solveOptions.js';
 
 export interface SolveBoardOptions extends SolveOptions {
   /**
@@ -21,7 +23,8 @@ export interface SolveBoardOptions extends SolveOptions {
  */
 export function solveBoardModel(board: Board, options: SolveBoardOptions = {}): BoardResult {
   assertBoardModel(board);
-  const result = analyseSolution(solveNetwork(board, options));
+  checkOptionKeys(options, 'options', [...SOLVE_OPTION_KEYS, 'openNeutral']);
+  const result = analyseSolution(solveNetwork(board, solveOptionsOf(options)));
   const wantOpen = options.openNeutral ?? board.studies.openNeutral;
-  return assertFiniteResult(wantOpen ? { ...result, openNeutral: studyOpenNeutral(board, options) } : result);
+  return assertFiniteResult(wantOpen ? { ...result, openNeutral: studyOpenNeutral(board, solveOptionsOf(options)) } : result);
 }

@@ -4,6 +4,8 @@ import { analyseInstallation, type AnalyseInstallationOptions } from './analyseI
 import type { InstallationResult } from './installationResult.js';
 import { assertFiniteResult } from './assertFiniteResult.js';
 import { assertInstallationModel } from '../board/modelGuards.js';
+import { checkOptionKeys } from '../_internal/argumentChecks.js';
+import { SOLVE_OPTION_KEYS, solveOptionsOf } from '../network/solveOptions.js';
 
 export type SolveInstallationOptions = AnalyseInstallationOptions;
 
@@ -13,5 +15,6 @@ export type SolveInstallationOptions = AnalyseInstallationOptions;
  */
 export function solveInstallationModel(installation: Installation, options: SolveInstallationOptions = {}): InstallationResult {
   assertInstallationModel(installation);
-  return assertFiniteResult(analyseInstallation(solveInstallationNetwork(installation, options), options));
+  checkOptionKeys(options, 'options', [...SOLVE_OPTION_KEYS, 'openNeutral']);
+  return assertFiniteResult(analyseInstallation(solveInstallationNetwork(installation, solveOptionsOf(options)), options));
 }

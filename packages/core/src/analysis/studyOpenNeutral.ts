@@ -13,6 +13,8 @@ import { installationOf } from '../network/installationModel.js';
 import { buildInstallationCircuit } from '../network/installationCircuit.js';
 import { REFERENCE } from '../network/circuit.js';
 import { solveNetwork, terminalVoltage, type NetworkSolution, type SolveOptions } from '../network/solveNetwork.js';
+import { SOLVE_OPTION_KEYS } from '../network/solveOptions.js';
+import { checkOptionKeys } from '../_internal/argumentChecks.js';
 import { solveNetworkByNewton } from '../network/solveNetworkByNewton.js';
 import { followNeutralBreak, withNeutralFault } from './followNeutralBreak.js';
 import type { OpenNeutralLoadReading, OpenNeutralState, OpenNeutralStudy, OpenNeutralWithoutRule } from './boardResult.js';
@@ -190,6 +192,7 @@ function openStates(open: Board, starts: readonly (NetworkSolution | null)[], th
 
 export function studyOpenNeutral(board: Board, options?: SolveOptions): OpenNeutralStudy {
   assertBoardModel(board);
+  checkOptionKeys(options as unknown, 'options', SOLVE_OPTION_KEYS);
   const notApplicable = (note: string): OpenNeutralStudy => ({
     applicable: false,
     note,

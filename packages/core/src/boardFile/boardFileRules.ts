@@ -7,11 +7,11 @@
 import { BOARD_RULES, type BoardRule } from '../board/boardRules.js';
 import { readTradeSpellings } from '../board/conventions/readTradeSpellings.js';
 import { wellFormedBoardShape } from '../board/wellFormedBoard.js';
-import { ruleHarmonicFields } from '../harmonics/harmonicsRules.js';
+import { ruleHarmonicFields, ruleInstalledBankRating } from '../harmonics/harmonicsRules.js';
 import type { BoardSpec } from './boardFileSchema.js';
 
 /** The rules the studies add to the board's own, run after them. */
-export const STUDY_BOARD_RULES = [ruleHarmonicFields] as const;
+export const STUDY_BOARD_RULES = [ruleHarmonicFields, ruleInstalledBankRating] as const;
 
 export const BOARD_FILE_RULES: readonly BoardRule<BoardSpec>[] = [...BOARD_RULES, ...STUDY_BOARD_RULES];
 

@@ -10,6 +10,7 @@ import { isInstallationInput } from '../board/installationInput.js';
 import { installationSchema, type BoardSpec, type InstallationSpec } from './boardFileSchema.js';
 import { BOARD_FILE_CHECKS } from './validateBoard.js';
 import { STUDY_BOARD_RULES } from './boardFileRules.js';
+import { ruleInstallationBankRatings } from '../harmonics/harmonicsRules.js';
 import type { HarmonicsSectionSpec, InstallationHarmonicsSectionSpec } from '../harmonics/harmonicsSpec.js';
 
 /** A board file's `harmonics:` section as the installation's: its bank on the one board. */
@@ -20,7 +21,7 @@ function harmonicsOfBoard(name: string, section: HarmonicsSectionSpec): Installa
 
 const INSTALLATION_FILE_CHECKS: InstallationFileChecks<InstallationSpec, BoardSpec> = {
   schema: installationSchema,
-  rules: installationRulesWith<InstallationSpec>([...BOARD_RULES, ...STUDY_BOARD_RULES]),
+  rules: [...installationRulesWith<InstallationSpec>([...BOARD_RULES, ...STUDY_BOARD_RULES]), ruleInstallationBankRatings],
   board: BOARD_FILE_CHECKS,
   // The board's correction and harmonic studies carry over (its bank on its one board); the other sections are one-board studies.
   boardAsInstallation: (board) => ({

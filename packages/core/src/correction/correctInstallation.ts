@@ -15,6 +15,7 @@ import { compareCorrections, type CorrectionComparison } from './compareCorrecti
 import type { CorrectionReport } from './correctionResult.js';
 import { installationEffect, type InstallationEffect } from './installationEffect.js';
 import { assertInstallationModel } from '../board/modelGuards.js';
+import { checkOptionKeys, checkTextArgument } from '../_internal/argumentChecks.js';
 
 export interface CorrectInstallationOptions {
   /** Name of the board the equipment goes on. @defaultValue the main board */
@@ -109,12 +110,30 @@ export function leadingWithBanks(placed: { board: string; otherBanksInService: r
 /** The metering point of a study, where it is not the equipment's board. */
 export const measuredAt = (report: CorrectionReport): { measuredAt?: string } => (report.verification.metering ? { measuredAt: report.verification.metering.point } : {});
 
+/** Keys of the study a caller may put in the options by mistake, and where each belongs. */
+const STUDY_KEYS: Readonly<Record<string, string>> = {
+  measuredAt: 'measuredAt belongs in the study: spec.target.measuredAt ("origin" or a board\'s name)',
+  arrangement: 'arrangement belongs in the study: spec.arrangement',
+  target: 'target belongs in the study: spec.target',
+};
+
+/**
+ * The options checked before anything is placed: a misspelt or misplaced key would otherwise put the
+ * equipment on the main board, or measure where the caller did not ask, without a word.
+ * @throws {InputError} naming `options`, `options.<key>` or `options.board`
+ */
+function checkCorrectInstallationOptions(options: unknown): asserts options is CorrectInstallationOptions | undefined {
+  checkOptionKeys(options, 'options', ['board'], STUDY_KEYS);
+  if (options?.board !== undefined) checkTextArgument(options.board, 'options.board', 'the name of a board of the installation (text)');
+}
+
 /**
  * The board the equipment goes on, with its place, and how the result names it. Banks the installation
  * has in service (`withBanksInService`) stay in on the other boards; one on this board is taken out,
  * the equipment taking its place.
  */
 export function placeCorrection(installation: Installation, options: CorrectInstallationOptions | undefined) {
+  checkCorrectInstallationOptions(options);
   const boardIndex = installationBoardIndex(installation, options?.board);
   const replaced = installation.banksInService?.find((r) => r.boardIndex === boardIndex);
   const inService = withoutBankOn(installation, boardIndex);

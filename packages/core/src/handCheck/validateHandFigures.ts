@@ -9,6 +9,7 @@ import { labellerOf, type PhaseNaming } from '../board/conventions/phaseNames.js
 import { conventionsOf } from '../board/conventions/boardConventions.js';
 import { ONE_SHOT_PARSE } from '../_internal/oneShotParse.js';
 import { assertBoardModel } from '../board/modelGuards.js';
+import { bankRatingIssue, boardNominalPair } from '../harmonics/bankRatingCheck.js';
 
 type Obj = Record<string, unknown>;
 const isObj = (x: unknown): x is Obj => typeof x === 'object' && x !== null && !Array.isArray(x);
@@ -45,6 +46,11 @@ function boardRules(spec: HandFiguresSpec, board: Board): InputIssue[] {
       issues.push(inputIssue('not-on-board', `capacitors[${k}].branch`, `a branch between this board's phases (${phases})${board.hasNeutral ? ' or to N' : ''}`, label(c.branch)));
     else if (to === 'N' && !board.hasNeutral)
       issues.push(inputIssue('no-neutral', `capacitors[${k}].branch`, 'a line pair: this board has no neutral', label(c.branch)));
+    else if (c.ratedV !== undefined) {
+      // The kvar's voltage near the branch's: 28 for 280 made a capacitor 100 times too large (bankRatingCheck.ts).
+      const rating = bankRatingIssue({ connection: to === 'N' ? 'star' : 'delta', ratedV: c.ratedV }, boardNominalPair(board), `capacitors[${k}].ratedV`);
+      if (rating) issues.push(rating);
+    }
   });
   for (const p of Object.keys(spec.expected?.lines ?? {}))
     if (!board.phases.includes(p as never)) issues.push(inputIssue('not-on-board', `expected.lines.${p}`, `a line of this board (${phases})`, label(p)));

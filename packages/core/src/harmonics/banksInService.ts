@@ -14,6 +14,7 @@ import { boardOfInstallation, withBoardLoads } from '../network/installationMode
 import { addInstalledBank, installedBankLayout } from './harmonicModel.js';
 import type { InstallationBankSpec } from './harmonicsSpec.js';
 import { assertInstallationModel } from '../board/modelGuards.js';
+import { bankRatingIssue, boardNominalPair } from './bankRatingCheck.js';
 
 const boardNames = (installation: Installation) => [installation.main.name, ...installation.subBoards.map((sb) => sb.name)];
 
@@ -36,6 +37,9 @@ export function bankBoardsOf(banks: readonly InstallationBankSpec[] | undefined,
     else seen.set(b, i);
     const layout = installedBankLayout(installation.main, bank.connection);
     if (!layout.ok) issues.push(inputIssue('not_applicable', `${path}.connection`, layout.expected, bank.connection));
+    // Banks handed in without parseInstallation: the file's rating rule (harmonicsRules.ts), here too.
+    const rating = bankRatingIssue(bank, boardNominalPair(installation.main), `${path}.ratedV`);
+    if (rating) issues.push(rating);
     (bank.stepsInService ?? []).forEach((step, k) => {
       const at = `${path}.stepsInService[${k}]`;
       if (step > bank.stepsKvar.length) issues.push(inputIssue('too_big', at, `a step of this bank: 1 to ${bank.stepsKvar.length} (stepsKvar has ${bank.stepsKvar.length})`, step));

@@ -3,6 +3,7 @@
  * the library and `trivar harmonics --json`.
  */
 import type { PhaseId } from '../board/boardModel.js';
+import type { PowerFactorSense } from '../analysis/boardResult.js';
 import type { PhaseNaming } from '../board/conventions/phaseNames.js';
 import type { VoltageDistortionBasis } from './voltageDistortionLimits.js';
 
@@ -35,8 +36,27 @@ export interface HarmonicLineReading {
   readonly kW: number;
   /** P / (V_rms · I_rms). */
   readonly truePf: number | null;
-  /** cos(angle V1 − angle I1). */
+  /** cos(angle V1 − angle I1): negative where the line carries power back; its sense in `displacementSense`. */
   readonly displacementPf: number | null;
+  /** Lagging (Q1 > 0, absorbed), leading (Q1 < 0, capacitive: a bank larger than the line's load), unity, or none without current. */
+  readonly displacementSense: PowerFactorSense;
+  /** Active power at the fundamental, kW (load convention). */
+  readonly fundamentalKW: number;
+  /** Reactive power at the fundamental, kvar (+ absorbed, as by a lagging load; − capacitive). */
+  readonly fundamentalKvar: number;
+}
+
+/**
+ * The board's power factors: true (every order) and displacement (the fundamental), both arithmetic over the
+ * lines; the displacement PF's sense, and the fundamental's P and Q it is read from, summed over the lines.
+ */
+export interface HarmonicsPowerFactor {
+  readonly true: number | null;
+  readonly displacement: number | null;
+  /** Of ΣQ1 over the lines: leading where the board as a whole sends capacitive kvar back up its supply. */
+  readonly displacementSense: PowerFactorSense;
+  readonly fundamentalKW: number;
+  readonly fundamentalKvar: number;
 }
 
 export interface NeutralCheck {
@@ -313,7 +333,7 @@ export interface HarmonicsReport {
   readonly hasNeutral: boolean;
   readonly neutral: NeutralCheck | null;
   /** Board figures, arithmetic over the lines: ΣP / Σ(V·I). */
-  readonly powerFactor: { readonly true: number | null; readonly displacement: number | null };
+  readonly powerFactor: HarmonicsPowerFactor;
   readonly tdd: TddCheck | null;
   /** The board's bus voltages against the levels of its basis (IEC 61000-2-2, EN 50160 or IEEE 519): each order and THD. */
   readonly voltageDistortion: VoltageDistortionCheck;
@@ -342,7 +362,7 @@ export interface BoardHarmonics {
   readonly neutral: NeutralCheck | null;
   /** rms of the zero-sequence orders (3, 9, 15…) in the feeder neutral, A; null without a neutral. */
   readonly triplenNeutralA: number | null;
-  readonly powerFactor: { readonly true: number | null; readonly displacement: number | null };
+  readonly powerFactor: HarmonicsPowerFactor;
   readonly voltageDistortion: VoltageDistortionCheck;
   /** Non-linear loads on this board and their spectra. */
   readonly spectra: readonly LoadSpectrumNote[];

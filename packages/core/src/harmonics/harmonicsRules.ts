@@ -4,6 +4,9 @@ import type { BoardBaseSpec } from '../board/boardSchema.js';
 import { systemHasNeutral } from '../board/systemTopology.js';
 import { labellerOf, type PhaseNaming } from '../board/conventions/phaseNames.js';
 import type { HarmonicLoadSpec } from './harmonicsSpec.js';
+import type { SupplySpec } from '../board/boardSchema.js';
+import { nominalVoltagesOf } from '../board/nominalVoltages.js';
+import { bankRatingIssue, type RatedBank } from './bankRatingCheck.js';
 
 /** What the rule reads: the supply and the loads with their harmonic fields. */
 type BoardWithHarmonicLoads = Pick<BoardBaseSpec, 'supply'> & { readonly loads: readonly HarmonicLoadSpec[] };
@@ -27,4 +30,23 @@ export function ruleHarmonicFields(board: BoardWithHarmonicLoads, naming: PhaseN
       issues.push(inputIssue('not_applicable', `${path}.spectrum`, `a spectrum on ${label('ABC-delta')} loads or stars tied to the neutral (describe a floating-star (wye) non-linear load as ${label('ABC-delta')})`, 'a floating star'));
   });
   return issues;
+}
+
+/**
+ * A board file's bank (`harmonics.bank`): its rated voltage near the voltage across its capacitors
+ * (bankRatingCheck.ts). A board of an installation has no such section; its banks are the installation's.
+ */
+export function ruleInstalledBankRating(board: { readonly supply: SupplySpec; readonly harmonics?: { readonly bank?: RatedBank | undefined } | undefined }): InputIssue[] {
+  const bank = board.harmonics?.bank;
+  const issue = bank ? bankRatingIssue(bank, nominalVoltagesOf(board.supply), 'harmonics.bank.ratedV') : null;
+  return issue ? [issue] : [];
+}
+
+/** An installation file's banks (`harmonics.banks[i]`), each as `ruleInstalledBankRating`: every board shares the supply's nominal voltages. */
+export function ruleInstallationBankRatings(spec: { readonly supply: SupplySpec; readonly harmonics?: { readonly banks?: readonly RatedBank[] | undefined } | undefined }): InputIssue[] {
+  const nominal = nominalVoltagesOf(spec.supply);
+  return (spec.harmonics?.banks ?? []).flatMap((bank, i) => {
+    const issue = bankRatingIssue(bank, nominal, `harmonics.banks[${i}].ratedV`);
+    return issue ? [issue] : [];
+  });
 }

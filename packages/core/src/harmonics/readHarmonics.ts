@@ -8,6 +8,7 @@ import type { NetworkSolution } from '../network/solveNetwork.js';
 import { terminalVoltage } from '../network/solveNetwork.js';
 import { currentNoiseFloor } from '../analysis/noiseFloor.js';
 import type { DistortionReading, HarmonicLineReading, OrderReading } from './harmonicsResult.js';
+import { powerReading } from '../analysis/powerReading.js';
 
 /** A solved order: h and its solution (h = 1 is the fundamental). */
 export interface OrderSolution {
@@ -73,6 +74,8 @@ export function readLines(orders: readonly OrderSolution[]): HarmonicLineReading
     const apparent = voltage.rms * current.rms;
     const v1 = voltages.find((o) => o.order === 1)!;
     const s1 = mul(v1.v[k]!, conj(v1.i[k]!));
+    // The fundamental's P and Q, a part within round-off of S read as 0 (powerReading.ts): the sense of the displacement PF.
+    const fundamental = powerReading(s1);
     return {
       phase,
       current,
@@ -80,6 +83,9 @@ export function readLines(orders: readonly OrderSolution[]): HarmonicLineReading
       kW: watts / 1000,
       truePf: apparent > 0 ? watts / apparent : null,
       displacementPf: abs(s1) > 0 ? s1.re / abs(s1) : null,
+      displacementSense: fundamental.sense,
+      fundamentalKW: fundamental.kW,
+      fundamentalKvar: fundamental.kvar,
     };
   });
 }

@@ -11,6 +11,8 @@ import type { Board, BoardLoad } from '../board/boardModel.js';
 import { abs, add } from '../complex.js';
 import { InputError, inputIssue } from '../errors.js';
 import { compileBoard, solveCompiledBoard, solveNetwork, type NetworkSolution, type SolveOptions } from '../network/solveNetwork.js';
+import { resolveSolveOptions, SOLVE_OPTION_KEYS } from '../network/solveOptions.js';
+import { checkListArgument, checkNumberArgument, checkOptionKeys } from '../_internal/argumentChecks.js';
 import { CompiledNetworkCache } from '../network/compiledNetworkCache.js';
 import { NEGLIGIBLE_OHMS } from '../network/installationCircuit.js';
 import { addInstalledBank, installedBankLayout, ordersPresent, resolveHarmonicModel, stateKey, type BankModel, type HarmonicModel } from './harmonicModel.js';
@@ -24,7 +26,9 @@ import { checkVoltageDistortion } from './voltageDistortion.js';
 import { HARMONICS_DEFAULTS } from './harmonicsDefaults.js';
 import type { HarmonicsBoardSpec } from './harmonicsSpec.js';
 import { harmonicsCautions, harmonicsWarningText, harmonicsWording, neutralPractice } from './harmonicsWording.js';
-import type { CapacitorDuty, DistortionReading, DutyCase, DutyCondition, HarmonicLineReading, HarmonicsReport, HarmonicsWarning, NeutralCheck, ResonanceScan, TddCheck, VoltageDistortionCheck } from './harmonicsResult.js';
+import { powerReading } from '../analysis/powerReading.js';
+import { bankRatingIssue, bankRatingWarningOn, boardNominalPair } from './bankRatingCheck.js';
+import type { CapacitorDuty, DistortionReading, DutyCase, DutyCondition, HarmonicLineReading, HarmonicsPowerFactor, HarmonicsReport, HarmonicsWarning, NeutralCheck, ResonanceScan, TddCheck, VoltageDistortionCheck } from './harmonicsResult.js';
 import { conventionsOf } from '../board/conventions/boardConventions.js';
 import { regionWords, type RegionWords } from '../board/conventions/regionWords.js';
 import { labelIn } from '../board/conventions/phaseNames.js';
@@ -37,6 +41,24 @@ export interface HarmonicsOptions {
   readonly scanOrders?: readonly number[];
   /** Most networks scanned from one bank's board with the other banks switched. @defaultValue HARMONICS_DEFAULTS.jointStateLimit */
   readonly jointStateLimit?: number;
+}
+
+const HARMONICS_OPTION_KEYS = ['solve', 'scanOrders', 'jointStateLimit'];
+
+/**
+ * The options of a harmonic study checked before any solve: a misspelt key would otherwise run the study
+ * on its defaults without a word.
+ * @param extraKeys keys a particular entry takes besides the common ones (`scanBoards` on an installation)
+ * @throws {InputError} naming `options`, `options.<key>` or `options.solve.<key>`
+ */
+export function checkHarmonicsOptions(options: unknown, extraKeys: readonly string[] = []): asserts options is HarmonicsOptions | undefined {
+  checkOptionKeys(options, 'options', [...HARMONICS_OPTION_KEYS, ...extraKeys]);
+  if (options?.solve !== undefined) {
+    checkOptionKeys(options.solve, 'options.solve', SOLVE_OPTION_KEYS);
+    resolveSolveOptions(options.solve as SolveOptions, 'options.solve');
+  }
+  if (options?.scanOrders !== undefined) checkListArgument(options.scanOrders, 'options.scanOrders', 'a list of harmonic orders, numbers of at least 1', (h) => typeof h === 'number' && Number.isFinite(h) && h >= 1);
+  if (options?.jointStateLimit !== undefined) checkNumberArgument(options.jointStateLimit, 'options.jointStateLimit', 'a whole number of networks, at least 1', (n) => Number.isInteger(n) && n >= 1);
 }
 
 /**
@@ -329,6 +351,7 @@ export function harmonicsWarnings({ scan, neutral, voltageDistortion, duty, tdd,
  */
 export function analyseHarmonics(board: Board, model: HarmonicModel, options: HarmonicsOptions = {}): HarmonicsReport {
   assertBoardModel(board);
+  checkHarmonicsOptions(options);
   // One set of compiled networks for every solve: the study's and each duty state's, at every order.
   const networks = new CompiledNetworkCache();
   const orders = solveHarmonicOrders(board, model, options.solve, networks);
@@ -342,18 +365,23 @@ export function analyseHarmonics(board: Board, model: HarmonicModel, options: Ha
   const phaseNames = conventionsOf(board).phaseNames;
   const voltageDistortion = checkVoltageDistortion(lines, lineToLine, board.hasNeutral, model.voltageDistortionLimits);
   // Warnings name phases, pairs and branches the way the board file names them (L1-N or A-N).
-  const warnings = harmonicsWarnings({ scan, neutral, voltageDistortion, duty, tdd, splitPhase: board.system === 'split-phase' }, (term) => labelIn(phaseNames, term));
+  const label = (term: string) => labelIn(phaseNames, term);
+  const warnings = harmonicsWarnings({ scan, neutral, voltageDistortion, duty, tdd, splitPhase: board.system === 'split-phase' }, label);
+  const state = model.bank ? `every bank step on (${combinationLabel(model.bank, model.bank.stepLoads.map(() => true))})` : 'as given';
+  const powerFactor = boardPowerFactor(orders, lines);
+  const leads = leadingStateWarning(lines, powerFactor, state, model.bank ? allOnKvar(scan) : null, label);
+  if (leads) warnings.push(leads);
   return {
     board: board.name,
     phaseNames,
     frequencyHz: board.frequencyHz,
     orders: orders.slice(1).map((o) => o.order),
-    state: model.bank ? `every bank step on (${combinationLabel(model.bank, model.bank.stepLoads.map(() => true))})` : 'as given',
+    state,
     lines,
     lineToLine,
     hasNeutral: board.hasNeutral,
     neutral,
-    powerFactor: boardPowerFactor(orders, lines),
+    powerFactor,
     tdd,
     voltageDistortion,
     scan,
@@ -365,15 +393,45 @@ export function analyseHarmonics(board: Board, model: HarmonicModel, options: Ha
   };
 }
 
-/** Board figures, arithmetic over the lines: ΣP / Σ(V·I) with every order, and at the fundamental alone. */
+/** Board figures, arithmetic over the lines: ΣP / Σ(V·I) with every order, and at the fundamental alone; the sense that of ΣQ1. */
 export function boardPowerFactor(orders: readonly OrderSolution[], lines: readonly HarmonicLineReading[]): HarmonicsReport['powerFactor'] {
   const watts = lines.reduce((s, l) => s + l.kW * 1000, 0);
   const apparent = lines.reduce((s, l) => s + l.voltage.rms * l.current.rms, 0);
   const fundamentalLines = readLines([orders[0]!]);
   const apparent1 = fundamentalLines.reduce((s, l) => s + l.voltage.rms * l.current.rms, 0);
+  const fundamental = powerReading({ re: lines.reduce((s, l) => s + l.fundamentalKW, 0) * 1000, im: lines.reduce((s, l) => s + l.fundamentalKvar, 0) * 1000 });
   return {
     true: apparent > 0 ? watts / apparent : null,
     displacement: apparent1 > 0 ? fundamentalLines.reduce((s, l) => s + l.kW * 1000, 0) / apparent1 : null,
+    displacementSense: apparent1 > 0 ? fundamental.sense : 'none',
+    fundamentalKW: fundamental.kW,
+    fundamentalKvar: fundamental.kvar,
+  };
+}
+
+/** What the bank delivers with every step on, at nominal voltage (the scan's state with every step on); null without that state. */
+export function allOnKvar(scan: ResonanceScan): number | null {
+  return scan.combinations.find((c) => c.steps.every(Boolean))?.capacitorKvar ?? null;
+}
+
+/**
+ * The studied state leaves lines leading at the fundamental: the bank, every step on, delivers more than
+ * those lines' loads draw and capacitive kvar goes back up the supply (as `bank-in-service-exceeds-loads`
+ * says of a bank in service on an installation's board). Null where no line leads or no bank is on.
+ * @param bankKvar what the bank in the studied state delivers at nominal voltage, kvar (the scan's figure)
+ */
+export function leadingStateWarning(lines: readonly HarmonicLineReading[], power: HarmonicsPowerFactor, state: string, bankKvar: number | null, label: (term: string) => string): HarmonicsWarning | null {
+  if (bankKvar === null || !(bankKvar > 0)) return null;
+  // As printed (powerFactorText.ts): a line whose vars show as 0.00 has no lead to speak of, and one that carries
+  // power back reads "export", not lead. A line carrying the bank alone (no active power) leads at 0.000.
+  const leading = lines.filter((l) => l.displacementSense === 'leading' && l.fundamentalKvar <= -0.005 && !(l.fundamentalKW <= -0.005));
+  if (leading.length === 0) return null;
+  const named = leading.map((l) => `${label(l.phase)} ${Math.abs(l.displacementPf!).toFixed(3)}`);
+  return {
+    code: 'bank-state-leads',
+    message: harmonicsWarningText.leadingState(state, named, bankKvar, power.fundamentalKvar),
+    value: power.fundamentalKvar,
+    threshold: 0,
   };
 }
 
@@ -392,6 +450,9 @@ function checkBank(spec: HarmonicsBoardSpec, board: Board): void {
   if (!bank) return;
   const layout = installedBankLayout(board, bank.connection);
   if (!layout.ok) throw new InputError([inputIssue('not_applicable', 'harmonics.bank.connection', layout.expected, bank.connection)]);
+  // A spec handed in without parseBoard: the rating rule of the file (harmonicsRules.ts), here too.
+  const rating = bankRatingIssue(bank, boardNominalPair(board), 'harmonics.bank.ratedV');
+  if (rating) throw new InputError([rating]);
 }
 
 /**
@@ -401,11 +462,14 @@ function checkBank(spec: HarmonicsBoardSpec, board: Board): void {
  * @throws {NumericalError} when a solve fails, or reason `collapsed` when the board's supply has collapsed
  */
 export function studyBoardHarmonics(spec: HarmonicsBoardSpec, options: HarmonicsOptions = {}): HarmonicsReport {
+  checkHarmonicsOptions(options);
   const plain = normaliseBoard(spec);
   checkBank(spec, plain);
   const withBank = spec.harmonics?.bank ? addInstalledBank(plain, spec.harmonics.bank) : { board: plain, model: null };
   const model = resolveHarmonicModel(spec, withBank.board, withBank.model);
   // Harmonics of a collapsed state describe nothing that can exist (as the correction study refuses it).
   assertViableBoard(withBank.board);
-  return analyseHarmonics(withBank.board, model, options);
+  const report = analyseHarmonics(withBank.board, model, options);
+  const rating = spec.harmonics?.bank ? bankRatingWarningOn(spec.harmonics.bank, boardNominalPair(plain)) : null;
+  return rating ? { ...report, warnings: [...report.warnings, rating] } : report;
 }

@@ -35,7 +35,10 @@ import {
   assumptions,
   boardPowerFactor,
   capacitorDuty,
+  allOnKvar,
   checkedOrders,
+  checkHarmonicsOptions,
+  leadingStateWarning,
   harmonicsWarnings,
   neutralCheck,
   spectraOf,
@@ -45,6 +48,7 @@ import {
   type SwitchedOtherBanks,
 } from './studyHarmonics.js';
 import { checkObjectArgument } from '../_internal/argumentChecks.js';
+import { bankRatingWarningOn, boardNominalPair } from './bankRatingCheck.js';
 
 /** What the study reads of an installation file: the installation, its loads' harmonic fields and the `harmonics:` section. */
 export type HarmonicsInstallationSpec = Omit<InstallationBaseSpec, 'boards'> & {
@@ -224,7 +228,16 @@ export function resolveInstallationHarmonics(spec: HarmonicsInstallationSpec, pl
  * @throws {NumericalError} when a solve fails, or reason `collapsed` when a board's supply has collapsed
  */
 export function studyInstallationHarmonicsSpec(spec: HarmonicsInstallationSpec, options: HarmonicsOptions = {}): InstallationHarmonicsReport {
-  return analyseInstallationHarmonics(resolveInstallationHarmonics(spec), options);
+  checkHarmonicsOptions(options);
+  const resolved = resolveInstallationHarmonics(spec);
+  const report = analyseInstallationHarmonics(resolved, options);
+  // Ratings well above the voltage across the capacitors (refused far above by the file's rules): said on the bank's board.
+  const nominal = boardNominalPair(resolved.installation.main);
+  const rating = (spec.harmonics?.banks ?? []).flatMap((bank) => {
+    const w = bankRatingWarningOn(bank, nominal);
+    return w ? [{ ...w, board: bank.board }] : [];
+  });
+  return rating.length ? { ...report, warnings: [...report.warnings, ...rating] } : report;
 }
 
 export interface InstallationHarmonicsOptions extends HarmonicsOptions {
@@ -238,6 +251,7 @@ export interface InstallationHarmonicsOptions extends HarmonicsOptions {
  */
 export function analyseInstallationHarmonics(model: InstallationHarmonicModel, options: InstallationHarmonicsOptions = {}): InstallationHarmonicsReport {
   checkObjectArgument(model, 'model', 'an installation harmonic model from resolveInstallationHarmonics(...)', ['installation', 'models', 'bankBoards']);
+  checkHarmonicsOptions(options, ['scanBoards']);
   const { installation, models, bankBoards } = model;
   // One set of compiled networks for every solve: the study's and each bank's duty states', at every order.
   const networks = new CompiledNetworkCache();
@@ -282,6 +296,10 @@ export function analyseInstallationHarmonics(model: InstallationHarmonicModel, o
     const duty = capacitorDuty(fundamental.boards[b]!.board, models[b]!, installationDutySolver(models, b, networks, options.solve), bankBoards.length > 1, jointScan ? switchedOtherBanks(jointScan, names, models) : undefined);
     warnings.push(...harmonicsWarnings({ scan, neutral: null, voltageDistortion: null, duty, tdd: null }, label).map((w) => ({ ...w, board: names[b]! })));
     if (jointScan) warnings.push(...jointResonanceWarnings(names[b]!, scan, jointScan).map((w) => ({ ...w, board: names[b]! })));
+    // Read at the board's incoming feeder, every bank of the installation on (the state the figures are for).
+    const bank = models[b]!.bank;
+    const leads = bank ? leadingStateWarning(boards[b]!.lines, boards[b]!.powerFactor, `every step of its bank on (${combinationLabel(bank, bank.stepLoads.map(() => true))})`, allOnKvar(scan), label) : null;
+    if (leads) warnings.push({ ...leads, board: names[b]! });
     return { board: names[b]!, scan, jointScan, capacitorDuty: duty };
   });
   const tdd = tddCheck(main, models[0]!, boards[0]!.lines);

@@ -16,7 +16,8 @@ import type { Board, Installation, Terminal } from '../board/boardModel.js';
 import { REFERENCE, type NetworkTopology } from './networkTopology.js';
 import { buildInstallationCircuit, type InstallationCircuit } from './installationCircuit.js';
 import { boardOfInstallation, installationOf } from './installationModel.js';
-import { resolveSolveOptions, type SolveOptions } from './solveOptions.js';
+import { resolveSolveOptions, SOLVE_OPTION_KEYS, type SolveOptions } from './solveOptions.js';
+import { checkOptionKeys } from '../_internal/argumentChecks.js';
 import { compileCircuit, type CompiledNetwork } from './compiledNetwork.js';
 import { assertBoardModel, assertInstallationModel } from '../board/modelGuards.js';
 
@@ -246,6 +247,7 @@ export function readInstallationSolution(installation: Installation, layout: Ins
 /** Solves an installation once (compiles it first). */
 export function solveInstallationNetwork(installation: Installation, options?: SolveOptions): InstallationSolution {
   assertInstallationModel(installation);
+  checkOptionKeys(options as unknown, 'options', SOLVE_OPTION_KEYS);
   resolveSolveOptions(options);
   return solveCompiledInstallation(compileInstallation(installation), options);
 }
@@ -261,6 +263,7 @@ const voltageOf = (voltages: readonly (ComplexValue | null)[], node: number): Co
  */
 export function solveNetwork(board: Board, options?: SolveOptions): NetworkSolution {
   assertBoardModel(board);
+  checkOptionKeys(options as unknown, 'options', SOLVE_OPTION_KEYS);
   resolveSolveOptions(options);
   return solveCompiledBoard(compileBoard(board), options);
 }

@@ -1,4 +1,5 @@
 /** Options of every network solve, with their defaults resolved in one place. */
+import { argumentIssueError, checkNumberArgument } from '../_internal/argumentChecks.js';
 
 export interface SolveOptions {
   /**
@@ -23,18 +24,33 @@ export interface ResolvedSolveOptions {
   readonly lowVoltageThreshold: number;
 }
 
-export function resolveSolveOptions(options: SolveOptions = {}): ResolvedSolveOptions {
+/** The keys a SolveOptions object takes, for the entry points that check an options object's keys. */
+export const SOLVE_OPTION_KEYS: readonly string[] = ['tolerance', 'maxIterations', 'lowVoltageThreshold'];
+
+/**
+ * Only the solve options of a larger options object (`openNeutral` beside them): what a study hands
+ * on to the solver, whose entry refuses keys it does not take.
+ */
+export function solveOptionsOf(options: SolveOptions | undefined): SolveOptions {
+  if (!options) return {};
+  const { tolerance, maxIterations, lowVoltageThreshold } = options;
+  return { ...(tolerance !== undefined ? { tolerance } : {}), ...(maxIterations !== undefined ? { maxIterations } : {}), ...(lowVoltageThreshold !== undefined ? { lowVoltageThreshold } : {}) };
+}
+
+/**
+ * The options with their defaults.
+ * @param argument how the caller names the options, for the error (`options`, `options.solve`)
+ * @throws {InputError} naming `<argument>.<field>` for a value outside its range
+ */
+export function resolveSolveOptions(options: SolveOptions = {}, argument = 'options'): ResolvedSolveOptions {
+  if (options === null || typeof options !== 'object') throw argumentIssueError(argument, 'the solve options ({} or nothing for the defaults)', options);
   const resolved = {
     tolerance: options.tolerance ?? 1e-10,
     maxIterations: options.maxIterations ?? 100,
     lowVoltageThreshold: options.lowVoltageThreshold ?? 0.7,
   };
-  if (!(resolved.tolerance > 0 && resolved.tolerance < 0.1))
-    throw new RangeError(`solveNetwork: tolerance must be in (0, 0.1) (received ${resolved.tolerance})`);
-  if (!Number.isInteger(resolved.maxIterations) || resolved.maxIterations < 1)
-    throw new RangeError(`solveNetwork: maxIterations must be a positive integer (received ${resolved.maxIterations})`);
-  if (!(resolved.lowVoltageThreshold > 0 && resolved.lowVoltageThreshold <= 1))
-    throw new RangeError(`solveNetwork: lowVoltageThreshold must be in (0, 1] (received ${resolved.lowVoltageThreshold})`);
+  checkNumberArgument(resolved.tolerance, `${argument}.tolerance`, 'a number above 0 and below 0.1 (a fraction of the nominal voltage)', (x) => x > 0 && x < 0.1);
+  checkNumberArgument(resolved.maxIterations, `${argument}.maxIterations`, 'a whole number of iterations, at least 1', (x) => Number.isInteger(x) && x >= 1);
+  checkNumberArgument(resolved.lowVoltageThreshold, `${argument}.lowVoltageThreshold`, 'a number above 0 and at most 1 (per unit)', (x) => x > 0 && x <= 1);
   return resolved;
 }
-

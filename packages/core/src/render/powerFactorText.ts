@@ -43,6 +43,20 @@ export function signedPfText(pf: number | null, none = '-'): string {
 }
 
 /**
+ * A displacement power factor (the fundamental's, as the harmonic study reads it) in the words of
+ * `powerFactorText`: "0.894 lead" where the fundamental's vars are capacitive, "0.950 lag", "export" where
+ * active power flows back, no tag at 1.000 with 0.00 kvar, `none` where nothing flows.
+ * @param pf the displacement PF, signed (negative where the power flows back) or not; null where nothing flows
+ * @param power the fundamental's sense, kW and kvar (load convention) the PF is read from
+ */
+export function displacementPfText(pf: number | null, power: { readonly sense: PowerFactorSense; readonly kW: number; readonly kvar: number }, none = '-'): string {
+  if (pf !== null && !(Math.abs(pf) <= 1 + 1e-9)) checkNumberArgument(pf, 'pf', 'a displacement power factor from -1 to 1, or null where no current flows', (x) => Math.abs(x) <= 1 + 1e-9);
+  if (typeof power !== 'object' || power === null) throw argumentIssueError('power', "the fundamental's { sense, kW, kvar }", power);
+  if (pf === null) return none;
+  return powerFactorText({ pf: Math.abs(pf), sense: power.sense, kW: power.kW, kvar: power.kvar, kVA: Math.hypot(power.kW, power.kvar) }, none);
+}
+
+/**
  * The footnote for circuits given in kW without a pf (`*`), from the kW of those circuits: a consumer
  * taken at pf 1 is a resistive load, an exporter (a generator, PV) simply runs at unity power factor.
  */

@@ -12,6 +12,7 @@ import { arrow, scaleBar, subscripted, type Point } from './svgShapes.js';
 import { attrs, coord, escapeXml, fixed, sig3 } from './svgText.js';
 import { assertBoardResult } from '../analysis/resultGuards.js';
 import { checkObjectArgument } from '../_internal/argumentChecks.js';
+import { checkOptionKeys } from '../_internal/argumentChecks.js';
 
 export interface LineCurrentParts {
   /** P/|V|, A (negative when the line exports). */
@@ -58,6 +59,7 @@ const pfText = (r: LineCurrentParts): string => r.pf === null ? 'no current' : `
 export function renderCurrentTriangles(before: BoardResult, after: BoardResult, options: CurrentTriangleOptions = {}): string {
   assertBoardResult(before, 'before');
   assertBoardResult(after, 'after');
+  checkOptionKeys(options, 'options', ['title', 'changeName']);
   const { panelWidth, top, bottomText, widthBudget, heightBudget } = TRIANGLE_LAYOUT;
   // Visible labels follow the board's phase names; data-phase attributes keep A/B/C.
   const label = (phase: string) => labelIn(before.conventions.phaseNames, phase);

@@ -12,6 +12,7 @@ import { INK, MUTED_INK, GRID_COLOUR } from './palette.js';
 import { attrs, coord, escapeXml, fixed, sig3 } from './svgText.js';
 import { GLYPH_WIDTH_EM } from './labelPlacement.js';
 import { assertInstallationResult } from '../analysis/resultGuards.js';
+import { checkOptionKeys } from '../_internal/argumentChecks.js';
 
 export interface OneLineDiagramOptions {
   /** Heading inside the drawing. @defaultValue `One-line drawing of the installation` */
@@ -92,6 +93,7 @@ function strokeFor(f: FeederReading, largest: number): number {
  */
 export function renderOneLineDiagram(result: InstallationResult, options: OneLineDiagramOptions = {}): string {
   assertInstallationResult(result);
+  checkOptionKeys(options, 'options', ['title', 'supplyLines', 'phaseName']);
   const labels = result.boards[0]!.result.conventions.phaseLabels as Readonly<Record<string, string>>;
   const phaseName = options.phaseName ?? ((p: string) => labels[p] ?? p);
   const layout = layOutOneLine(result, L);

@@ -13,6 +13,7 @@ import { arrow, scaleBar, subscripted, type Point } from './svgShapes.js';
 import { attrs, coord, escapeXml, sig3 } from './svgText.js';
 import { placeLabels, textBox, type Box, type LabelRequest } from './labelPlacement.js';
 import { assertBoardResult } from '../analysis/resultGuards.js';
+import { checkOptionKeys } from '../_internal/argumentChecks.js';
 
 export interface PhasorDiagramOptions {
   /**
@@ -129,6 +130,7 @@ function legend(y: number, overlay: boolean, v: PhasorScale, i: PhasorScale, has
  */
 export function renderPhasorDiagram(result: BoardResult, options: PhasorDiagramOptions = {}): string {
   assertBoardResult(result);
+  checkOptionKeys(options, 'options', ['after', 'title']);
   if (options.after !== undefined) assertBoardResult(options.after, 'options.after');
   const { width, height, cx, cy, radius, currentShare } = PHASOR_LAYOUT;
   const after = options.after;

@@ -16,6 +16,7 @@ import { attrs, coord, escapeXml, sig3 } from './svgText.js';
 import { placeLabels, textBox, type LabelRequest } from './labelPlacement.js';
 import { InputError, inputIssue } from '../errors.js';
 import { assertBoardResult } from '../analysis/resultGuards.js';
+import { checkOptionKeys } from '../_internal/argumentChecks.js';
 
 export const SEQUENCE_LAYOUT = { width: 600, rowHeight: 250, top: 50, panelRadius: 78 } as const;
 
@@ -96,6 +97,7 @@ export interface SequenceDiagramOptions {
 
 export function renderSequenceDiagram(result: BoardResult, options: SequenceDiagramOptions = {}): string {
   assertBoardResult(result);
+  checkOptionKeys(options, 'options', ['title']);
   if (!result.sequences)
     throw new InputError([inputIssue('not-three-phase', 'supply.system', 'a three-phase board (sequence components exist only there)', result.board.system)], 'no sequence view');
   const { width, rowHeight, top } = SEQUENCE_LAYOUT;

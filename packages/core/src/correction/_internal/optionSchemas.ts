@@ -9,7 +9,7 @@ import { inFileNaming } from '../../board/conventions/issueNaming.js';
 
 export const solveOptionsSchema = z
   .strictObject({
-    tolerance: z.number().positive().optional(),
+    tolerance: z.number().positive().lt(0.1).optional(),
     maxIterations: z.int().min(1).optional(),
     lowVoltageThreshold: z.number().positive().max(1).optional(),
   })

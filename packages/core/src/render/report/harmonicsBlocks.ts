@@ -24,7 +24,7 @@ import { fixed } from '../svgText.js';
 import { levelText } from '../../harmonics/voltageDistortionLimits.js';
 import { renderImpedanceScan } from '../renderImpedanceScan.js';
 import type { ReportBlock } from './reportDocument.js';
-import { signedPfText } from '../powerFactorText.js';
+import { displacementPfText, signedPfText } from '../powerFactorText.js';
 
 export const orDash = (x: number | null | undefined, d: number): string => (x === null || x === undefined ? '—' : fixed(x, d));
 /** Orders shown as columns (more would not fit a printed page); every order stays in the JSON. */
@@ -74,7 +74,7 @@ export function harmonicVoltageTable(
     kind: 'table',
     caption,
     columns: [{ label: 'Line' }, { label: 'rms V', align: 'right' }, { label: 'THD %', align: 'right' }, { label: 'true PF', align: 'right' }, { label: 'displacement PF', align: 'right' }],
-    rows: lines.map((l) => [label(l.phase), fixed(l.voltage.rms, 1), thdOf(`${l.phase}-N`, l.voltage), signedPfText(l.truePf, '—'), signedPfText(l.displacementPf, '—')]),
+    rows: lines.map((l) => [label(l.phase), fixed(l.voltage.rms, 1), thdOf(`${l.phase}-N`, l.voltage), signedPfText(l.truePf, '—'), displacementPfText(l.displacementPf, { sense: l.displacementSense, kW: l.fundamentalKW, kvar: l.fundamentalKvar }, '—')]),
   };
 }
 
