@@ -22,6 +22,8 @@ interface TargetWords {
 }
 
 const f3 = (x: number) => x.toFixed(3);
+/** 3 → "3rd", 11 → "11th", 21 → "21st". */
+const ordinal = (n: number): string => `${n}${n % 100 >= 11 && n % 100 <= 13 ? 'th' : ['th', 'st', 'nd', 'rd'][n % 10] ?? 'th'}`;
 
 /**
  * A figure beside the bound it misses, with enough decimals that the two read
@@ -156,8 +158,8 @@ export const warningText = {
     `at light load the fixed part makes line${phases.length > 1 ? 's' : ''} ${phases.join(', ')} lead (checked at the high end of the capacitance tolerance)`,
   voltageRise: (what: string, percent: number, limit: number) => `${what} raises the board voltage by about ${percent.toFixed(2)} %, above the ${f1(limit)} % flag level`,
   /** @param capacitance what resonates: the bank, the leading loads already on the board, or both */
-  lowResonance: (order: number, capacitance: 'bank' | 'board' | 'both' = 'bank') =>
-    `${capacitance === 'bank' ? 'the bank' : capacitance === 'board' ? "the board's own leading loads (capacitance already in service)" : "the bank with the board's own leading loads"} and the supply inductance resonate near harmonic order ${order.toFixed(1)}: with harmonic-producing loads on the board this needs a harmonic study and probably a detuned bank`,
+  lowResonance: (order: number, capacitance: 'bank' | 'board' | 'both' = 'bank', near: readonly number[] = []) =>
+    `${capacitance === 'bank' ? 'the bank' : capacitance === 'board' ? "the board's own leading loads (capacitance already in service)" : "the bank with the board's own leading loads"} and the supply inductance resonate near harmonic order ${order.toFixed(1)}${near.length ? ` (within 10 % of the ${near.map(ordinal).join(' and the ')})` : ''}, estimated as √(X_C/X_path) from the supply path's reactance: with harmonic-producing loads on the board this needs a harmonic study and probably a detuned bank`,
   partialBalance: (negative: number, zero: number, reactors: readonly PhaseLabel[]) =>
     `the capacitor-only compensator meets the power-factor target but balances only partly (|I2|/|I1| = ${negative.toFixed(1)} %, |I0|/|I1| = ${zero.toFixed(1)} %)${reactors.length ? `; full balance needs reactors on ${reactors.join(', ')}` : ''}`,
   ctBelowLineCurrent: (primaryA: number, lineA: number) =>

@@ -185,7 +185,7 @@ function asDetuned(report: CorrectionReport, p: number, percent: number, plainSe
     ...report,
     summary,
     warnings: withoutEstimate(report.warnings),
-    verification: { ...report.verification, resonanceOrder: null, warnings: withoutEstimate(report.verification.warnings) },
+    verification: { ...report.verification, resonanceOrder: null, resonanceNearOrders: [], warnings: withoutEstimate(report.verification.warnings) },
     selection: {
       ...selection,
       ...(plainSelection ? { catalogue: plainSelection.catalogue, catalogueTitle: plainSelection.catalogueTitle, catalogueNote: plainSelection.catalogueNote } : {}),

@@ -131,7 +131,11 @@ export interface ScanCombination {
   readonly label: string;
   /** Effective fundamental output of what is on, at nominal voltage, three-phase kvar. */
   readonly capacitorKvar: number;
-  /** √(S_sc/Q_c); null without a source impedance, without capacitors, or for a detuned bank (the formula does not apply). */
+  /**
+   * h = √(X_C/X_path) = √(S_sc,X/Q_c), S_sc,X from the supply path's reactance alone (the classic √(S_sc/Q_c) with
+   * S_sc from |Z| assumes X ≫ R); null without a source reactance, without capacitors, or for a detuned bank (the
+   * formula does not apply).
+   */
   readonly formulaOrder: number | null;
   /** |Z| per pair, per scanned order, ohm, rounded to 1e-6 of the curve's largest value (plotting data). */
   readonly impedanceOhm: readonly (readonly number[])[];
@@ -145,7 +149,7 @@ export interface ResonanceScan {
   readonly pairs: readonly string[];
   /** Short-circuit power at the board from the source and feeder impedance, kVA; null on an ideal source. */
   readonly shortCircuitKVA: number | null;
-  /** Orders a resonance is checked against: those injected or on the supply, else 3, 5, 7, 11, 13. */
+  /** Orders a resonance is checked against: those injected or on the supply, else the odd orders 3 … 19 (HARMONICS_DEFAULTS.watchedOrders). */
   readonly checkedOrders: readonly number[];
   readonly checkedOrdersFrom: 'spectra and background' | 'characteristic orders (no spectrum given)';
   readonly combinations: readonly ScanCombination[];
