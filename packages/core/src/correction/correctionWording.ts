@@ -12,6 +12,7 @@ import { starWordOf, type StarWord } from '../board/conventions/regionWords.js';
 import { REGIONS, type Region } from '../board/conventions/region.js';
 import { SYSTEMS } from '../board/boardRanges.js';
 import { quoteText } from '../errors.js';
+import { lineToNeutralCapacitorsCaution } from '../analysis/openNeutralWording.js';
 
 interface TargetWords {
   readonly definition: TargetDefinition;
@@ -200,6 +201,43 @@ export const correctionCautions = (ground: 'earth' | 'ground'): readonly string[
   'Adding capacitance moves the supply resonance down in frequency. This study does not check harmonics: check resonance and capacitor duty against the harmonic spectrum of the board separately before installing.',
   MODEL_CAUTION,
 ];
+
+/** A capacitor branch from a line to the neutral, as the lost-neutral wording names it. */
+export interface NeutralTiedBranch {
+  readonly branch: PhaseLabel;
+  /** Output at the solved voltage, kvar. */
+  readonly kvar: number;
+}
+
+/** What the equipment's own line-to-neutral capacitors do with the neutral lost and nothing else on the board (Millman). */
+export interface FloatingBankFigures {
+  /** The branch that sees the most, and the voltage across it, V. */
+  readonly branch: PhaseLabel;
+  readonly volts: number;
+  /** The line-to-neutral voltage it is judged against, V. */
+  readonly lineToNeutralV: number;
+  /** The lowest unit rating on that branch, V (across the branch); null where no unit was chosen. */
+  readonly ratedV: number | null;
+}
+
+/**
+ * The caution for equipment that puts capacitors from a line to the neutral: the broken-neutral study's
+ * own words (openNeutralWording.ts), after a sentence naming the branches, so `trivar correct` and the
+ * study say the same of the same capacitors.
+ */
+export const lostNeutralCaution = (what: string, branches: readonly NeutralTiedBranch[], basis: string, phasesWord: string, star: StarWord): string =>
+  `The ${what} puts capacitors from line to neutral (${branchKvars(branches, basis)}): a lost neutral leaves them in series with the loads of the other ${phasesWord}. ${lineToNeutralCapacitorsCaution(phasesWord, star)}`;
+/** "A-N 8.33, B-N 1.00, C-N 5.00 kvar nameplate". */
+const branchKvars = (branches: readonly NeutralTiedBranch[], basis: string) => `${branches.map((b) => `${b.branch} ${b.kvar.toFixed(2)}`).join(', ')} kvar ${basis}`;
+
+/**
+ * Said as a warning where the branches are unequal: the bank's own star point floats even with no load,
+ * before any resonance with the loads, and the figure shows by how much.
+ */
+export const lostNeutralUnequal = (what: string, branches: readonly NeutralTiedBranch[], basis: string, f: FloatingBankFigures, star: StarWord, between: string): string => {
+  const rated = f.ratedV === null ? '' : `, ${(f.volts / f.ratedV).toFixed(2)} × their ${f.ratedV.toFixed(0)} V rating`;
+  return `the ${what}'s line-to-neutral branches are unequal (${branchKvars(branches, basis)}): with the neutral lost, even with nothing else on the board its ${star} point floats and the ${f.branch} capacitors see ${f1(f.volts)} V (${(f.volts / f.lineToNeutralV).toFixed(2)} × line-to-neutral${rated}); with the loads in series it can be far more (see the cautions). Where a lost neutral is credible, correct between lines (${between}), or run the broken-neutral study (studies: openNeutral) with the bank written as loads`;
+};
 
 /** The correction cautions in IEC words (the library's constant; reports use the board's region). */
 export const CORRECTION_CAUTIONS: readonly string[] = correctionCautions('earth');
