@@ -264,6 +264,18 @@ function highEndWords(check: { readonly leadingLines: readonly PhaseId[]; readon
   return 'no line leads';
 }
 
+/**
+ * Where the tolerance ends were judged, where that is not the equipment's board: "no line leads" is said
+ * of the metering point's lines, and must not read as a verdict on the board's lines table beside it.
+ */
+function toleranceWhere(v: CorrectionVerification): string {
+  if (!v.metering) return '';
+  const board = v.after.board.name;
+  const led = v.lines.filter((l) => l.pf.after !== null && l.sense.after === 'leading' && l.activeCurrentA.after > 0);
+  const atBoard = led.length ? `; at ${board} itself ${led.length > 1 ? 'lines' : 'line'} ${led.map((l) => labelsOf(v)(l.phase)).join(', ')} already ${led.length > 1 ? 'lead' : 'leads'} at nominal capacitance (lines table)` : '';
+  return ` — judged at ${v.metering.point === 'origin' ? 'the origin' : `the incomer of ${v.metering.point}`}, where the target is measured${atBoard}`;
+}
+
 /** The supply resonance line: its estimate and what it is worked from, or why there is none. */
 function resonanceWords(v: CorrectionVerification, detuned: boolean): string {
   const head = 'parallel resonance with the supply';
@@ -292,7 +304,7 @@ function checksBlock(v: CorrectionVerification, detuned = false): string {
   const label = labelsOf(v);
   const t = v.tolerance;
   out.push(
-    `capacitance ×${t.low.capacitanceFactor}: target ${t.low.check.met ? 'met' : 'NOT met'} · ×${t.high.capacitanceFactor}: ${highEndWords(t.high.check, label)}`,
+    `capacitance ×${t.low.capacitanceFactor}: target ${t.low.check.met ? 'met' : 'NOT met'} · ×${t.high.capacitanceFactor}: ${highEndWords(t.high.check, label)}${toleranceWhere(v)}`,
   );
   const vr = v.voltageRise;
   out.push(

@@ -188,6 +188,16 @@ export const warningText = {
     }`,
   overloadCaused: (boardWords: string) => `with the equipment in, ${boardWords}; without it this does not happen — a larger conductor or supply, or another arrangement, is needed before this equipment is installed`,
   idealSource: 'the source impedance is zero, so the steady voltage rise and the resonance order cannot be estimated',
+  /**
+   * The target is measured upstream (`target.measuredAt`) and the equipment leaves its own board leading:
+   * what solve says of a board led by its own capacitors, with where the target was judged.
+   */
+  equipmentBoardLeading: (board: string, point: string, lines: readonly { phase: PhaseLabel; pf: number }[], limit: number, kvar: { before: number; after: number }, lightLoadChecked: boolean) =>
+    `the target is judged at ${meteringPointWords(point)}, but ${board} itself, where the equipment is connected, ends up leading: ${lines
+      .map((l) => `line ${l.phase} at PF ${f3(l.pf)} leading`)
+      .join(', ')} (below ${limit.toFixed(2)} leading, common practice, as solve flags a board led by its own capacitors); its lines go from ${kvar.before.toFixed(2)} to ${kvar.after.toFixed(2)} kvar, so its feeder carries capacitive current and the voltage there rises${
+      lightLoadChecked ? '' : `; at light load it leads further (give a light-load condition, --light-load or the correction section's lightLoad, to check it)`
+    }. Where that board's lines must not lead, size the equipment for a PF measured there, or split it between the boards`,
 };
 
 /** The caution that holds with or without equipment to install. */

@@ -28,6 +28,7 @@ import { balanceWorsening } from './balanceWorsening.js';
 import { overloadsCaused } from './overloadsCaused.js';
 import { assertBoardModel } from '../board/modelGuards.js';
 import { judgedNominalOf } from '../board/nominalVoltages.js';
+import { WARNING_THRESHOLDS } from '../analysis/boardWarnings.js';
 
 export interface VerifyCorrectionOptions {
   /** The equipment to add, e.g. `selection.equipment` or `sizing.equipment`. */
@@ -196,6 +197,33 @@ export function verifyCorrection(board: Board, options: VerifyCorrectionOptions)
   const high = atTolerance(1 + plus);
   if (check.met && !low.met) warn('tolerance-low', warningText.toleranceLow(low.shortfalls));
   if (high.leadingLines.length && !check.leadingLines.length) warn('tolerance-high', warningText.toleranceHigh(high.leadingLines.map(label)));
+
+  // Judged at a metering point, the target says nothing of the equipment's own board: sized for the PF
+  // upstream, the bank can leave its own board leading. Said as solve says it of a board's own capacitors
+  // (the line-leading warning, below 0.90 leading), for the lines the equipment makes lead there.
+  if (meter) {
+    const limit = WARNING_THRESHOLDS.leadingLinePf;
+    const madeLead = after.phases.filter((p, k) => {
+      const b = before.phases[k]!;
+      return p.kW > 0 && p.sense === 'leading' && p.pf !== null && p.pf < limit && !(b.sense === 'leading' && b.pf !== null && b.pf <= p.pf);
+    });
+    if (madeLead.length) {
+      const through = (r: BoardResult) => r.phases.reduce((sum, p) => sum + p.kvar, 0);
+      warn(
+        'equipment-board-leading',
+        warningText.equipmentBoardLeading(
+          board.name,
+          target.measuredAt!,
+          madeLead.map((p) => ({ phase: label(p.phase), pf: p.pf! })),
+          limit,
+          { before: through(before), after: through(after) },
+          opts.lightLoad !== undefined,
+        ),
+        Math.min(...madeLead.map((p) => p.pf!)),
+        limit,
+      );
+    }
+  }
 
   const capacitorKvar = branches.reduce((s, b) => s + b.kvarAtAppliedV, 0);
   const rise = voltageRise(board, capacitorKvar, before, after, riseLimit);
