@@ -79,18 +79,23 @@ describe('a board led by its own fixed capacitor bank', () => {
     expect(c.onBoardKvar).toBeCloseTo(-bank.kvar, 12);
     expect(Math.abs(c.onBoardKvar - 50)).toBeLessThan(0.5);
     expect(c.reactorKvar).toBeGreaterThan(20);
-    const ssc = report.verification.voltageRise.shortCircuitKVA!;
-    expect(ssc).toBeCloseTo(7000, 6);
-    // h = √((S_sc + Q_L)/Q_C): 11.87 here, 11.8 without the reactors.
-    expect(report.verification.resonanceOrder!).toBeCloseTo(Math.sqrt((ssc + c.reactorKvar) / c.totalKvar), 12);
-    expect(report.verification.resonanceOrder!).toBeCloseTo(11.87, 2);
+    expect(report.verification.voltageRise.shortCircuitKVA!).toBeCloseTo(7000, 6);
+    // The resonance is worked from the path's reactance: X/R 5 gives S_sc,X = 7000 × √(1 + 1/25) = 7138.6 kVA.
+    const sscX = c.reactanceShortCircuitKVA!;
+    expect(sscX).toBeCloseTo(7000 * Math.sqrt(1.04), 6);
+    // h = √((S_sc,X + Q_L)/Q_C): 11.98 here (11.87 from |Z|), 11.9 without the reactors.
+    expect(report.verification.resonanceOrder!).toBeCloseTo(Math.sqrt((sscX + c.reactorKvar) / c.totalKvar), 12);
+    expect(report.verification.resonanceOrder!).toBeCloseTo(11.98, 2);
+    expect(report.verification.resonanceNearOrders).toEqual([11, 13]);
     const text = renderCorrectionReport(report);
-    expect(text).toContain('√((S_sc + Q_L)/Q_C) = 11.87');
-    expect(text).toContain('of leading loads already on the board (Fixed bank left on)');
+    expect(text).toContain('√((S_sc,X + Q_L)/Q_C) = 11.98');
+    // One line of prose, wrapped at 100 columns: read with its line breaks as spaces.
+    expect(text.replace(/\s+/g, ' ')).toContain('of leading loads already on the board (Fixed bank left on)');
+    expect(text.replace(/\s+/g, ' ')).toContain("X_path = 0.0224 Ω, the supply path's reactance (S_sc,X = 7139 kVA");
     expect(text).not.toContain('not estimated');
     // Within 10 % of the 11th: warned, naming the capacitance that resonates (none of it added here).
     const w = report.verification.warnings.find((x) => x.code === 'resonance')!;
-    expect(w.message).toMatch(/^the board's own leading loads \(capacitance already in service\) and the supply inductance resonate near harmonic order 11\.9/);
+    expect(w.message).toMatch(/^the board's own leading loads \(capacitance already in service\) and the supply inductance resonate near harmonic order 12\.0 \(within 10 % of the 11th and the 13th\)/);
   });
 
   it('the summary names no reactor the build does not have', () => {

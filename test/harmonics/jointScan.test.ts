@@ -157,11 +157,13 @@ describe('joint scan by hand: two banks behind their feeders on a stiff source',
     }
   });
 
-  it('checked orders (none injected: 3, 5, 7, 11, 13) near a peak of the full bank name the state of bank B', () => {
-    expect(fromA.scan.checkedOrders).toEqual([3, 5, 7, 11, 13]);
-    // 8.94 with B off is within 10 % of neither 7 nor 11; 6.67 with B on is within 10 % of the 7th.
-    expect(full.nearOrders.map((n) => [n.order, n.peak.otherBanks])).toEqual([[7, 'Plant B bank step 1']]);
-    expect(full.nearest!.checkedOrder).toBe(7);
+  it('checked orders (none injected: the odd orders 3 … 19) near a peak of the full bank name the state of bank B', () => {
+    expect(fromA.scan.checkedOrders).toEqual([3, 5, 7, 9, 11, 13, 15, 17, 19]);
+    // 6.67 with B on is within 10 % of the 7th; 8.94 with B off within 10 % of the 9th (a triplen of single-phase
+    // rectifiers); the banks against each other at 20 with B on within 10 % of the 19th.
+    expect(full.nearOrders.map((n) => [n.order, n.peak.otherBanks])).toEqual([[7, 'Plant B bank step 1'], [9, 'Plant B bank off'], [19, 'Plant B bank step 1']]);
+    // The nearest: 8.94 is 0.6 % from the 9th, 6.67 is 4.7 % from the 7th.
+    expect(full.nearest!.checkedOrder).toBe(9);
   });
 });
 

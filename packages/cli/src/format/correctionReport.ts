@@ -282,6 +282,18 @@ function highEndWords(check: { readonly leadingLines: readonly PhaseId[]; readon
   return 'no line leads';
 }
 
+/**
+ * Where the tolerance ends were judged, where that is not the equipment's board: "no line leads" is said
+ * of the metering point's lines, and must not read as a verdict on the board's lines table beside it.
+ */
+function toleranceWhere(v: CorrectionVerification): string {
+  if (!v.metering) return '';
+  const board = v.after.board.name;
+  const led = v.lines.filter((l) => l.pf.after !== null && l.sense.after === 'leading' && l.activeCurrentA.after > 0);
+  const atBoard = led.length ? `; at ${board} itself ${led.length > 1 ? 'lines' : 'line'} ${led.map((l) => labelsOf(v)(l.phase)).join(', ')} already ${led.length > 1 ? 'lead' : 'leads'} at nominal capacitance (lines table)` : '';
+  return ` — judged at ${v.metering.point === 'origin' ? 'the origin' : `the incomer of ${v.metering.point}`}, where the target is measured${atBoard}`;
+}
+
 /** The supply resonance line: its estimate and what it is worked from, or why there is none. */
 function resonanceWords(v: CorrectionVerification, detuned: boolean): string {
   const head = 'parallel resonance with the supply';
@@ -289,15 +301,19 @@ function resonanceWords(v: CorrectionVerification, detuned: boolean): string {
   if (v.resonanceOrder === null) {
     if (detuned) return `${head}: a detuned bank keeps it below its tuning order (see the harmonic check)`;
     if (v.voltageRise.shortCircuitKVA === null) return `${head}: not estimated, the source is ideal (no impedance to resonate with)`;
+    if (c.reactanceShortCircuitKVA === null && c.totalKvar > 0) return `${head}: not estimated, the supply path has no reactance (nothing inductive to resonate with)`;
     return `${head}: none, no capacitors are added and no load on the board draws leading vars`;
   }
-  const formula = c.reactorKvar > 0 ? '√((S_sc + Q_L)/Q_C)' : '√(S_sc/Q_C)';
+  // From the path's reactance: the classic √(S_sc/Q_C) takes S_sc from |Z|, right only where X ≫ R.
+  const formula = c.reactorKvar > 0 ? '√((S_sc,X + Q_L)/Q_C)' : '√(X_C/X_path) = √(S_sc,X/Q_C)';
   const parts = [
     ...(c.addedKvar > 0 ? [`${fixed(c.addedKvar, 1)} kvar added`] : []),
     ...(c.onBoardKvar > 0 ? [`${fixed(c.onBoardKvar, 1)} kvar of leading loads already on the board (${c.loadsOnBoard.join(', ')}), taken as capacitance`] : []),
   ];
   const reactors = c.reactorKvar > 0 ? `; Q_L = ${fixed(c.reactorKvar, 1)} kvar of reactors added` : '';
-  return `${head} at about h = ${formula} = ${fixed(v.resonanceOrder, 2)} (× ${v.after.board.frequencyHz} Hz = ${fixed(v.resonanceOrder * v.after.board.frequencyHz, 0)} Hz); Q_C = ${parts.join(' + ')}${reactors}`;
+  const path = `; X_path = ${fixed(c.supplyReactanceOhm ?? 0, 4)} Ω, the supply path's reactance (S_sc,X = ${fixed(c.reactanceShortCircuitKVA ?? 0, 0)} kVA; its resistance damps the peak but hardly moves it)`;
+  const near = v.resonanceNearOrders.length ? `; within 10 % of order ${v.resonanceNearOrders.join(', ')}` : '';
+  return `${head} at about h = ${formula} = ${fixed(v.resonanceOrder, 2)} (× ${v.after.board.frequencyHz} Hz = ${fixed(v.resonanceOrder * v.after.board.frequencyHz, 0)} Hz)${near}; Q_C = ${parts.join(' + ')}${reactors}${path}`;
 }
 
 /** `detuned`: the bank's steps sit behind reactors, so √(S_sc/Qc) does not apply (the harmonic check covers it). */
@@ -306,7 +322,7 @@ function checksBlock(v: CorrectionVerification, detuned = false): string {
   const label = labelsOf(v);
   const t = v.tolerance;
   out.push(
-    `capacitance ×${t.low.capacitanceFactor}: target ${t.low.check.met ? 'met' : 'NOT met'} · ×${t.high.capacitanceFactor}: ${highEndWords(t.high.check, label)}`,
+    `capacitance ×${t.low.capacitanceFactor}: target ${t.low.check.met ? 'met' : 'NOT met'} · ×${t.high.capacitanceFactor}: ${highEndWords(t.high.check, label)}${toleranceWhere(v)}`,
   );
   const vr = v.voltageRise;
   out.push(

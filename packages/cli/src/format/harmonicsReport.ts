@@ -140,7 +140,7 @@ export function scanTable(s: ResonanceScan, label: Label): string {
     [
       { header: 'bank state', align: 'left' },
       { header: 'kvar on' },
-      { header: '√(Ssc/Qc)' },
+      { header: '√(Xc/Xpath)' },
       { header: 'scanned peaks (h)', align: 'left' },
       { header: 'largest |Z| ohm', align: 'left' },
       { header: 'near orders', align: 'left' },
@@ -148,6 +148,9 @@ export function scanTable(s: ResonanceScan, label: Label): string {
     rows,
   );
 }
+
+/** The design row at or above the continuous rating (the running state's rms, as printed). */
+const runningAtRated = (d: CapacitorDuty): boolean => d.continuousVoltage !== null && Number(d.continuousVoltage.highestPu.toFixed(3)) >= d.continuousVoltage.limitPu;
 
 export function dutyLines(d: CapacitorDuty, label: Label): string[] {
   const lim = d.limits;
@@ -159,14 +162,18 @@ export function dutyLines(d: CapacitorDuty, label: Label): string[] {
     renderTable(
       [{ header: 'worst state', align: 'left' }, { header: 'branch', align: 'left' }, { header: 'V rms pu' }, { header: 'V peak pu' }, { header: 'I rms pu' }, { header: 'kvar pu' }, { header: 'verdict', align: 'left' }],
       [
-        [`${d.worstNominal.label} (design)`, label(d.worstNominal.branch), ...dutyCells(d.worstNominal.figures), d.worstNominal.ok ? 'within' : 'EXCEEDS'],
-        [d.worst.label, label(d.worst.branch), ...dutyCells(w), d.ok ? 'within limits everywhere' : 'EXCEEDS'],
+        [`${d.worstNominal.label} (design)`, label(d.worstNominal.branch), ...dutyCells(d.worstNominal.figures), !d.worstNominal.ok ? 'EXCEEDS' : runningAtRated(d) ? 'AT/ABOVE RATED V' : 'within'],
+        [d.worst.label, label(d.worst.branch), ...dutyCells(w), !d.ok ? 'EXCEEDS' : d.continuousVoltage?.reached ? 'within the 8 h limits only' : 'within limits everywhere'],
       ],
     ),
     prose(
       `design = nominal capacitance, loads as given${d.conditions.some((c) => c.otherBanks) ? ', other banks on' : ''}; worst of every state at capacitance −${d.capacitanceTolerance.minusPercent} % / nominal / +${d.capacitanceTolerance.plusPercent} %, loads as given and all off${d.conditions.some((c) => c.otherBanks) ? ', other banks on, out of service and in any state the joint scan finds near a checked order' : ''}: ${d.worst.label}, ${conditionWords(d.worst.condition)}`,
     ),
-    prose(`highest fundamental voltage across a capacitor: ${fixed(d.highestCapacitorVoltageV, 1)} V (${fixed(d.highestCapacitorVoltageV / d.ratedV, 3)} × rated)`),
+    prose(
+      `highest fundamental voltage across a capacitor: ${fixed(d.highestCapacitorVoltageV, 1)} V (${fixed(d.highestCapacitorVoltageV / d.ratedV, 3)} × rated)${
+        d.continuousVoltage?.reached ? `; the units run at or above the ${fixed(d.continuousVoltage.limitPu, 2)} × rated they stand continuously (IEC 60831-1): see the warning` : ''
+      }`,
+    ),
     prose(`limits: ${d.limitsSource}`),
   ];
 }

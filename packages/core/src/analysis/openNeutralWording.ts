@@ -110,7 +110,23 @@ export interface BeyondLineToLine {
  * the floating neutral). There the caution gives the figure instead, and with a capacitive load adds
  * one about capacitors on line-to-neutral circuits.
  */
-export function openNeutralCautions(words: Pick<RegionWords, 'openNeutralCautions' | 'openNeutralCautionsReaching'>, beyond: BeyondLineToLine | null): readonly string[] {
+/**
+ * What to do instead of line-to-neutral capacitors where a lost neutral is credible, by the lines there
+ * are: a delta or floating-star (floating-wye) bank on three phases, a line-to-line bank across two legs.
+ */
+const betweenLines = (phasesWord: string, star: string): string => (phasesWord === 'leg' ? 'a line-to-line bank' : `a delta or floating-${star} bank`);
+
+/**
+ * The caution about capacitors from a line to the neutral once the neutral is lost: one wording for the
+ * broken-neutral study (where its figures show the resonance) and for trivar correct (where the
+ * equipment it adds puts capacitors line to neutral), so the two never disagree on the same equipment.
+ * @param phasesWord "phases", or "leg" on a split-phase board (RegionWords.phasesWord)
+ * @param star the region's word for a star connection (RegionWords.starWord)
+ */
+export const lineToNeutralCapacitorsCaution = (phasesWord: string, star: string = 'star'): string =>
+  `Capacitors on line-to-neutral circuits (power-factor correction of single-phase equipment, the EMI filters of electronic equipment) can resonate with inductive loads on the other ${phasesWord} once the neutral is lost: the overvoltage lasts until the supply is disconnected, beyond what surge protective devices are made to absorb, and breaks down insulation and capacitor dielectrics (a capacitor can fail violently). Where a lost neutral is credible, correct power factor between lines (${betweenLines(phasesWord, star)}) rather than line to neutral.`;
+
+export function openNeutralCautions(words: Pick<RegionWords, 'openNeutralCautions' | 'openNeutralCautionsReaching'> & Partial<Pick<RegionWords, 'starWord'>>, beyond: BeyondLineToLine | null): readonly string[] {
   if (!beyond) return words.openNeutralCautions;
   const { load, lineToLineV, phasesWord } = beyond;
   const ratio = load.voltage / lineToLineV;
@@ -118,11 +134,7 @@ export function openNeutralCautions(words: Pick<RegionWords, 'openNeutralCaution
   const model = beyond.impedanceModelOnly ? ' with every load as a constant impedance' : '';
   const why = beyond.capacitive ? `: capacitive and inductive loads on different ${phasesWord} are in series resonance through the floating neutral` : '';
   const reach = `line-to-neutral equipment can see more than the line-to-line voltage and be destroyed (here "${load.name}" would see ${fmt(load.voltage)} V${model}, ${times} the ${fmt(lineToLineV)} V between the board's lines${why})`;
-  const capacitors = beyond.capacitive
-    ? [
-        `Capacitors on line-to-neutral circuits (power-factor correction of single-phase equipment, the EMI filters of electronic equipment) can resonate with inductive loads on the other ${phasesWord} once the neutral is lost: the overvoltage lasts until the supply is disconnected, beyond what surge protective devices are made to absorb, and breaks down insulation and capacitor dielectrics (a capacitor can fail violently). Where a lost neutral is credible, correct power factor between lines (a delta or floating-star bank) rather than line to neutral.`,
-      ]
-    : [];
+  const capacitors = beyond.capacitive ? [lineToNeutralCapacitorsCaution(phasesWord, words.starWord ?? 'star')] : [];
   return [...words.openNeutralCautionsReaching(reach), ...capacitors];
 }
 

@@ -19,7 +19,7 @@ import { defaultPractice, selectBankUnits } from './selectBankUnits.js';
 import { verifyCorrection, type VerifyCorrectionOptions } from './verifyCorrection.js';
 import { scaleBoardLoads } from './scaleBoardLoads.js';
 import type { BankSelection, BankSizing, BuildVerdict, CompensatorSizing, CorrectionReport, CorrectionStatus, CorrectionVerification, CorrectionWarning, FewerBranchesBuild, RoundingBesideReactors, SizedEquipment } from './correctionResult.js';
-import { arrangementNames, correctionCautions, exemptLeadingLines, exemptLeadingWords, infeasibleReason, MODEL_CAUTION, meteringWarning, reportSummary, warningText } from './correctionWording.js';
+import { arrangementNames, correctionCautions, exemptLeadingLines, exemptLeadingWords, infeasibleReason, lostNeutralCaution, lostNeutralUnequal, MODEL_CAUTION, meteringWarning, reportSummary, warningText } from './correctionWording.js';
 import { definedOnly } from './_internal/optionSchemas.js';
 import { assertViableBoard } from '../analysis/viableOperatingPoint.js';
 import { CORRECTION_DEFAULTS, toleranceFractions } from './correctionDefaults.js';
@@ -28,6 +28,7 @@ import { conventionsOf } from '../board/conventions/boardConventions.js';
 import { labellerOf, type PhaseLabeller } from '../board/conventions/phaseNames.js';
 import { regionWords, starWordOf } from '../board/conventions/regionWords.js';
 import { assertBoardModel } from '../board/modelGuards.js';
+import { judgedNominalOf } from '../board/nominalVoltages.js';
 import { emptyBelowKvar } from './_internal/branchReadings.js';
 
 /** @param use `limitsOnly` for the light-load sizing, read only for its limits (see ResolvedBankOptions) */
@@ -76,6 +77,62 @@ function starPointWarnings(sizing: BankSizing | CompensatorSizing, board: Board)
       threshold: STAR_SHIFT_WARNING * ln,
     },
   ];
+}
+
+/**
+ * A floating star point of line-to-neutral capacitors warned above this share of the line-to-neutral
+ * voltage across one of them: IEC practice rates units 10 % above the voltage they see
+ * (CORRECTION_DEFAULTS.voltageMarginPercent), so past it a unit runs above its rating.
+ */
+const FLOATING_BANK_WARNING = 1.1;
+
+/**
+ * What the broken-neutral study says of capacitors from a line to the neutral, said of the equipment:
+ * a caution wherever it puts capacitors line to neutral on a board with more than one line (a star
+ * bank tied to the neutral, a compensator's line-to-neutral branches), and a warning where those
+ * branches are unequal enough that the bank's own star point, with the neutral lost and no load on the
+ * board, puts more than FLOATING_BANK_WARNING × the line-to-neutral voltage across one of them
+ * (Millman: V_star = Σ B_k·V_k / Σ B_k over the branches, V_k the solved phase voltages). On a
+ * single-phase board a lost neutral only takes the supply away.
+ */
+function lostNeutralNotes(board: Board, what: string, v: CorrectionVerification, selection: BankSelection | null, label: PhaseLabeller): { caution: string | null; warning: CorrectionWarning | null } {
+  const none = { caution: null, warning: null };
+  if (!board.hasNeutral || board.phases.length < 2) return none;
+  const empty = emptyBelowKvar(v.branches.reduce((sum, b) => sum + Math.abs(b.kvarAtAppliedV), 0));
+  const tied = v.branches.filter((b) => b.branch.endsWith('-N') && b.element !== 'none' && Math.abs(b.kvarAtAppliedV) >= empty);
+  const capacitors = tied.filter((b) => b.element === 'capacitor');
+  if (capacitors.length === 0) return none;
+  const words = regionWords(conventionsOf(board).region, board.system);
+  // Each branch's nameplate as the units table lists it (a three-phase step's shared over its branches); the
+  // sized output at nominal voltage where no units were chosen.
+  const steps = selection?.steps ?? [];
+  const plate = (branch: string) => steps.reduce((sum, st) => sum + (st.branches.includes(branch) ? st.nameplateKvar / st.branches.length : 0), 0);
+  const basis = steps.length ? 'nameplate' : 'at nominal voltage';
+  const named = capacitors.map((b) => ({ branch: label(b.branch), kvar: steps.length ? plate(b.branch) : b.kvarAtNominalV }));
+  const caution = lostNeutralCaution(what, named, basis, words.phasesWord, words.starWord);
+  // With reactors among them the floating point can sit in series resonance: no single figure; the caution says it.
+  if (tied.some((b) => b.element === 'reactor')) return { caution, warning: null };
+  const phaseOf = (branch: string) => v.after.phases.find((p) => `${p.phase}-N` === branch)!;
+  const total = tied.reduce((sum, b) => sum + b.susceptanceS, 0);
+  const star = tied.reduce((acc, b) => {
+    const u = phaseOf(b.branch).voltage;
+    return { re: acc.re + (b.susceptanceS * u.re) / total, im: acc.im + (b.susceptanceS * u.im) / total };
+  }, { re: 0, im: 0 });
+  const across = tied.map((b) => {
+    const u = phaseOf(b.branch).voltage;
+    return { b, volts: Math.hypot(u.re - star.re, u.im - star.im) };
+  });
+  const worst = across.reduce((m, x) => (x.volts > m.volts ? x : m));
+  const ln = judgedNominalOf(board).ln;
+  if (worst.volts <= FLOATING_BANK_WARNING * ln) return { caution, warning: null };
+  // The unit's rating across the branch: a single-phase unit's own, a three-phase (star) unit's element at U_r/√3.
+  const ratings = (selection?.steps ?? []).filter((s) => s.branches.includes(worst.b.branch)).map((s) => (s.unit.kind === 'single-phase' ? s.unit.ratedV : s.unit.ratedV / Math.sqrt(3)));
+  const figures = { branch: label(worst.b.branch), volts: worst.volts, lineToNeutralV: ln, ratedV: ratings.length ? Math.min(...ratings) : null };
+  const between = words.phasesWord === 'leg' ? 'a line-to-line bank' : `a delta or floating-${words.starWord} bank`;
+  return {
+    caution,
+    warning: { code: 'lost-neutral-unequal-bank', message: lostNeutralUnequal(what, named, basis, figures, words.starWord, between), path: null, value: worst.volts, threshold: FLOATING_BANK_WARNING * ln },
+  };
 }
 
 /** What gets built: a bank's sizing, or a compensator's capacitor-only solution. */
@@ -297,8 +354,11 @@ export function correctBoard(board: Board, spec: unknown): CorrectionReport {
   const settledByVerdict = new Set(
     status === 'meets-target' ? ['units-below-target', 'tolerance-window', 'units-past-limit'] : status === 'meets-target-at-nominal-capacitance' ? ['units-below-target'] : [],
   );
+  const what = arrangementNames(board.system, conventionsOf(board).region)[parsed.arrangement];
+  const lostNeutral = status === 'already-meets-target' ? { caution: null, warning: null } : lostNeutralNotes(board, what, verification, built, label);
   const warnings: CorrectionWarning[] = [
     ...(status === 'already-meets-target' ? [{ code: 'nothing-to-do', message: warningText.alreadyMet, path: 'target', value: null, threshold: null }] : []),
+    ...(lostNeutral.warning ? [lostNeutral.warning] : []),
     ...starPointWarnings(sizing, board),
     ...(sizing.arrangement === 'balancing-compensator' ? sizing.warnings : []),
     ...(selection?.warnings ?? []).filter((w) => !settledByVerdict.has(w.code)),
@@ -308,7 +368,6 @@ export function correctBoard(board: Board, spec: unknown): CorrectionReport {
       ? [{ code: 'controller-reads-elsewhere', message: meteringWarning(verification.metering.point, board.name), path: 'target.measuredAt', value: null, threshold: null }]
       : []),
   ];
-  const what = arrangementNames(board.system, conventionsOf(board).region)[parsed.arrangement];
   const delivered = selection?.deliveredKvar ?? 0;
   const nameplate = selection?.nameplateKvar ?? 0;
   return {
@@ -337,7 +396,10 @@ export function correctBoard(board: Board, spec: unknown): CorrectionReport {
     roundingBesideReactors,
     warnings,
     // Nothing to install: the capacitor cautions (discharge, inrush, resonance) are for equipment being added.
-    cautions: status === 'already-meets-target' ? [MODEL_CAUTION] : correctionCautions(regionWords(conventionsOf(board).region, board.system).groundWord),
+    cautions:
+      status === 'already-meets-target'
+        ? [MODEL_CAUTION]
+        : [...(lostNeutral.caution ? [lostNeutral.caution] : []), ...correctionCautions(regionWords(conventionsOf(board).region, board.system).groundWord)],
   };
 }
 

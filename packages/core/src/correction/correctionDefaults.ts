@@ -84,6 +84,18 @@ export const CORRECTION_DEFAULTS = {
   dischargeTimeS: { iec: CAPACITOR_DISCHARGE.iec.seconds, 'north-american': CAPACITOR_DISCHARGE['north-american'].seconds },
   /** Steady rise ΔV/V ≈ Qc/S_sc flagged above 3 % (common practice, no source). */
   voltageRiseLimitPercent: 3,
+  /**
+   * Harmonic orders a supply resonance is flagged near (within ±10 %, resonanceNearFraction) where the
+   * study has no spectrum of the board: every odd order the built-in typical spectra give a few percent
+   * (harmonics/typicalSpectra.ts): the six-pulse orders 6k ± 1 up to the 19th (drives carry 3–4 % at the
+   * 17th and 19th), and the triplen 3rd, 9th and 15th of single-phase rectifiers (switch-mode supplies,
+   * LED drivers: 9th ≈ 16 %, 15th ≈ 8 %), which flow in the lines of a board with a neutral and, from
+   * rectifiers across two lines, of one without. Above the 19th the typical currents are small and a
+   * single-node estimate too coarse to name an order. Even orders are left out (half-wave loads are rare).
+   */
+  resonanceWatchedOrders: [3, 5, 7, 9, 11, 13, 15, 17, 19],
+  /** A resonance within this fraction of a watched order is flagged (common practice, no source; as the harmonic scan's band). */
+  resonanceNearFraction: 0.1,
   compensatorWeights: { negativeSequence: 1, zeroSequence: 1, reactive: 1 },
   /**
    * Ridge weight on Σ(branch kvar)², per unit, in the capacitor-only objective:

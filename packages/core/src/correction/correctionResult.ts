@@ -401,6 +401,10 @@ export interface ResonanceCapacitance {
   readonly reactorKvar: number;
   /** addedKvar + onBoardKvar. */
   readonly totalKvar: number;
+  /** Reactance of the supply path to the board (source and every feeder on the way), ohm per line; null where it has none. */
+  readonly supplyReactanceOhm: number | null;
+  /** n·V²/X of that path, kVA: the short-circuit power the order is worked from (its reactance alone). */
+  readonly reactanceShortCircuitKVA: number | null;
 }
 
 export interface VoltageRise {
@@ -467,11 +471,14 @@ export interface CorrectionVerification {
   readonly tolerance: { readonly low: ToleranceCase; readonly high: ToleranceCase };
   readonly voltageRise: VoltageRise;
   /**
-   * Parallel resonance with the supply, h_r = √((S_sc + Q_L)/Q_C), Q_C the capacitors added and the
-   * leading loads already on the board, Q_L the reactors added (√(S_sc/Q_C) without reactors); null on
-   * an ideal source or with no capacitance at all.
+   * Parallel resonance with the supply, h_r = √(X_C/X_path) = √((S_sc,X + Q_L)/Q_C): S_sc,X from the
+   * supply path's reactance alone (the classic √(S_sc/Q_C) with S_sc from |Z| assumes X ≫ R, and behind a
+   * cable feeder names too low an order), Q_C the capacitors added and the leading loads already on the
+   * board, Q_L the reactors added; null on an ideal source or with no capacitance at all.
    */
   readonly resonanceOrder: number | null;
+  /** The harmonic orders `resonanceOrder` lies within ±10 % of, among those watched (RESONANCE_WATCHED_ORDERS); empty when none. */
+  readonly resonanceNearOrders: readonly number[];
   /** What `resonanceOrder` is worked from, kvar at the solved voltages with the equipment in. */
   readonly resonanceCapacitance: ResonanceCapacitance;
   readonly lightLoad: LightLoadCheck | null;

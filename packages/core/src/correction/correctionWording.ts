@@ -12,6 +12,7 @@ import { starWordOf, type StarWord } from '../board/conventions/regionWords.js';
 import { REGIONS, type Region } from '../board/conventions/region.js';
 import { SYSTEMS } from '../board/boardRanges.js';
 import { quoteText } from '../errors.js';
+import { lineToNeutralCapacitorsCaution } from '../analysis/openNeutralWording.js';
 
 interface TargetWords {
   readonly definition: TargetDefinition;
@@ -22,6 +23,8 @@ interface TargetWords {
 }
 
 const f3 = (x: number) => x.toFixed(3);
+/** 3 → "3rd", 11 → "11th", 21 → "21st". */
+const ordinal = (n: number): string => `${n}${n % 100 >= 11 && n % 100 <= 13 ? 'th' : ['th', 'st', 'nd', 'rd'][n % 10] ?? 'th'}`;
 
 /**
  * A figure beside the bound it misses, with enough decimals that the two read
@@ -158,8 +161,8 @@ export const warningText = {
     `at light load the fixed part makes line${phases.length > 1 ? 's' : ''} ${phases.join(', ')} lead (checked at the high end of the capacitance tolerance)`,
   voltageRise: (what: string, percent: number, limit: number) => `${what} raises the board voltage by about ${percent.toFixed(2)} %, above the ${f1(limit)} % flag level`,
   /** @param capacitance what resonates: the bank, the leading loads already on the board, or both */
-  lowResonance: (order: number, capacitance: 'bank' | 'board' | 'both' = 'bank') =>
-    `${capacitance === 'bank' ? 'the bank' : capacitance === 'board' ? "the board's own leading loads (capacitance already in service)" : "the bank with the board's own leading loads"} and the supply inductance resonate near harmonic order ${order.toFixed(1)}: with harmonic-producing loads on the board this needs a harmonic study and probably a detuned bank`,
+  lowResonance: (order: number, capacitance: 'bank' | 'board' | 'both' = 'bank', near: readonly number[] = []) =>
+    `${capacitance === 'bank' ? 'the bank' : capacitance === 'board' ? "the board's own leading loads (capacitance already in service)" : "the bank with the board's own leading loads"} and the supply inductance resonate near harmonic order ${order.toFixed(1)}${near.length ? ` (within 10 % of the ${near.map(ordinal).join(' and the ')})` : ''}, estimated as √(X_C/X_path) from the supply path's reactance: with harmonic-producing loads on the board this needs a harmonic study and probably a detuned bank`,
   partialBalance: (negative: number, zero: number, reactors: readonly PhaseLabel[]) =>
     `the capacitor-only compensator meets the power-factor target but balances only partly (|I2|/|I1| = ${negative.toFixed(1)} %, |I0|/|I1| = ${zero.toFixed(1)} %)${reactors.length ? `; full balance needs reactors on ${reactors.join(', ')}` : ''}`,
   ctBelowLineCurrent: (primaryA: number, lineA: number) =>
@@ -211,6 +214,16 @@ export const warningText = {
     }`,
   overloadCaused: (boardWords: string) => `with the equipment in, ${boardWords}; without it this does not happen — a larger conductor or supply, or another arrangement, is needed before this equipment is installed`,
   idealSource: 'the source impedance is zero, so the steady voltage rise and the resonance order cannot be estimated',
+  /**
+   * The target is measured upstream (`target.measuredAt`) and the equipment leaves its own board leading:
+   * what solve says of a board led by its own capacitors, with where the target was judged.
+   */
+  equipmentBoardLeading: (board: string, point: string, lines: readonly { phase: PhaseLabel; pf: number }[], limit: number, kvar: { before: number; after: number }, lightLoadChecked: boolean) =>
+    `the target is judged at ${meteringPointWords(point)}, but ${board} itself, where the equipment is connected, ends up leading: ${lines
+      .map((l) => `line ${l.phase} at PF ${f3(l.pf)} leading`)
+      .join(', ')} (below ${limit.toFixed(2)} leading, common practice, as solve flags a board led by its own capacitors); its lines go from ${kvar.before.toFixed(2)} to ${kvar.after.toFixed(2)} kvar, so its feeder carries capacitive current and the voltage there rises${
+      lightLoadChecked ? '' : `; at light load it leads further (give a light-load condition, --light-load or the correction section's lightLoad, to check it)`
+    }. Where that board's lines must not lead, size the equipment for a PF measured there, or split it between the boards`,
 };
 
 /** The caution that holds with or without equipment to install. */
@@ -224,6 +237,43 @@ export const correctionCautions = (ground: 'earth' | 'ground'): readonly string[
   'Adding capacitance moves the supply resonance down in frequency. This study does not check harmonics: check resonance and capacitor duty against the harmonic spectrum of the board separately before installing.',
   MODEL_CAUTION,
 ];
+
+/** A capacitor branch from a line to the neutral, as the lost-neutral wording names it. */
+export interface NeutralTiedBranch {
+  readonly branch: PhaseLabel;
+  /** Output at the solved voltage, kvar. */
+  readonly kvar: number;
+}
+
+/** What the equipment's own line-to-neutral capacitors do with the neutral lost and nothing else on the board (Millman). */
+export interface FloatingBankFigures {
+  /** The branch that sees the most, and the voltage across it, V. */
+  readonly branch: PhaseLabel;
+  readonly volts: number;
+  /** The line-to-neutral voltage it is judged against, V. */
+  readonly lineToNeutralV: number;
+  /** The lowest unit rating on that branch, V (across the branch); null where no unit was chosen. */
+  readonly ratedV: number | null;
+}
+
+/**
+ * The caution for equipment that puts capacitors from a line to the neutral: the broken-neutral study's
+ * own words (openNeutralWording.ts), after a sentence naming the branches, so `trivar correct` and the
+ * study say the same of the same capacitors.
+ */
+export const lostNeutralCaution = (what: string, branches: readonly NeutralTiedBranch[], basis: string, phasesWord: string, star: StarWord): string =>
+  `The ${what} puts capacitors from line to neutral (${branchKvars(branches, basis)}): a lost neutral leaves them in series with the loads of the other ${phasesWord}. ${lineToNeutralCapacitorsCaution(phasesWord, star)}`;
+/** "A-N 8.33, B-N 1.00, C-N 5.00 kvar nameplate". */
+const branchKvars = (branches: readonly NeutralTiedBranch[], basis: string) => `${branches.map((b) => `${b.branch} ${b.kvar.toFixed(2)}`).join(', ')} kvar ${basis}`;
+
+/**
+ * Said as a warning where the branches are unequal: the bank's own star point floats even with no load,
+ * before any resonance with the loads, and the figure shows by how much.
+ */
+export const lostNeutralUnequal = (what: string, branches: readonly NeutralTiedBranch[], basis: string, f: FloatingBankFigures, star: StarWord, between: string): string => {
+  const rated = f.ratedV === null ? '' : `, ${(f.volts / f.ratedV).toFixed(2)} × their ${f.ratedV.toFixed(0)} V rating`;
+  return `the ${what}'s line-to-neutral branches are unequal (${branchKvars(branches, basis)}): with the neutral lost, even with nothing else on the board its ${star} point floats and the ${f.branch} capacitors see ${f1(f.volts)} V (${(f.volts / f.lineToNeutralV).toFixed(2)} × line-to-neutral${rated}); with the loads in series it can be far more (see the cautions). Where a lost neutral is credible, correct between lines (${between}), or run the broken-neutral study (studies: openNeutral) with the bank written as loads`;
+};
 
 /** The correction cautions in IEC words (the library's constant; reports use the board's region). */
 export const CORRECTION_CAUTIONS: readonly string[] = correctionCautions('earth');

@@ -11,7 +11,7 @@ import { analyseSolution, readTargetFigures, type TargetReadings } from '../anal
 import { compileBoard, solveCompiledBoard, solveNetwork, type NetworkSolution, type SolveOptions } from '../network/solveNetwork.js';
 import { resolveSolveOptions } from '../network/solveOptions.js';
 import { abs, type ComplexValue } from '../complex.js';
-import { supplyPathImpedance } from '../network/installationModel.js';
+import { reactanceShortCircuitVA, supplyPathImpedance } from '../network/installationModel.js';
 import { lightLoadSchema, targetSchema, ARRANGEMENTS, type Arrangement, type CapacitanceToleranceSpec, type LightLoadSpec, type TargetSpec } from './correctionSpec.js';
 import { CORRECTION_DEFAULTS, toleranceFractions } from './correctionDefaults.js';
 import { judgeTarget, lineTanBounds, resolveTarget, TARGET_SLACK } from './correctionTarget.js';
@@ -28,6 +28,7 @@ import { balanceWorsening } from './balanceWorsening.js';
 import { overloadsCaused } from './overloadsCaused.js';
 import { assertBoardModel } from '../board/modelGuards.js';
 import { judgedNominalOf } from '../board/nominalVoltages.js';
+import { WARNING_THRESHOLDS } from '../analysis/boardWarnings.js';
 
 export interface VerifyCorrectionOptions {
   /** The equipment to add, e.g. `selection.equipment` or `sizing.equipment`. */
@@ -56,8 +57,9 @@ const verifyOptionsSchema = z.strictObject({
   solve: solveOptionsSchema.optional(),
 });
 
-/** Characteristic harmonic orders a resonance near which is flagged. */
-const WATCHED_ORDERS = [3, 5, 7, 11, 13];
+/** The watched orders (CORRECTION_DEFAULTS.resonanceWatchedOrders, with why) that a resonance order lies near. */
+export const resonanceNearOrders = (order: number): number[] =>
+  CORRECTION_DEFAULTS.resonanceWatchedOrders.filter((h) => Math.abs(order - h) <= CORRECTION_DEFAULTS.resonanceNearFraction * h);
 
 function shortCircuitVA(board: Board): number | null {
   // On a sub-board, through every feeder above it back to the source.
@@ -69,16 +71,27 @@ function shortCircuitVA(board: Board): number | null {
  * The shunt capacitance the supply's inductance resonates with: the capacitors added, and every
  * board load that draws leading vars (a fixed bank written as a load, a capacitive filter), taken as
  * capacitance at its solved output, as the added capacitors are. Added reactors are kept apart:
- * in parallel with the supply inductance they raise the order, h = √((S_sc + Q_L)/Q_C) (the
+ * in parallel with the supply inductance they raise the order, h = √((S_sc,X + Q_L)/Q_C) (the
  * single-node estimate, common practice, no source; reactive loads other than capacitive ones are
- * left out, as the usual √(S_sc/Q_C) leaves them).
+ * left out, as the usual √(S_sc/Q_C) leaves them). S_sc,X is the path's reactance alone
+ * (reactanceShortCircuitVA), so h = √(X_C/X_path) also behind a cable feeder whose R is not small.
  */
-function resonanceCapacitance(branches: readonly BranchSizing[], after: BoardResult): ResonanceCapacitance {
+function resonanceCapacitance(board: Board, branches: readonly BranchSizing[], after: BoardResult): ResonanceCapacitance {
   const addedKvar = branches.reduce((s, b) => s + (b.element === 'capacitor' ? b.kvarAtAppliedV : 0), 0);
   const reactorKvar = branches.reduce((s, b) => s + (b.element === 'reactor' ? -b.kvarAtAppliedV : 0), 0);
   const leading = after.loads.filter((l) => l.origin === 'board' && l.kvar < 0);
   const onBoardKvar = leading.reduce((s, l) => s - l.kvar, 0);
-  return { addedKvar, onBoardKvar, loadsOnBoard: leading.map((l) => l.name), reactorKvar, totalKvar: addedKvar + onBoardKvar };
+  const sscX = reactanceShortCircuitVA(board);
+  const reactance = supplyPathImpedance(board).im;
+  return {
+    addedKvar,
+    onBoardKvar,
+    loadsOnBoard: leading.map((l) => l.name),
+    reactorKvar,
+    totalKvar: addedKvar + onBoardKvar,
+    supplyReactanceOhm: sscX === null ? null : reactance,
+    reactanceShortCircuitKVA: sscX === null ? null : sscX / 1000,
+  };
 }
 
 function voltageRise(board: Board, capacitorKvar: number, before: BoardResult, after: BoardResult, limitPercent: number): VoltageRise {
@@ -185,13 +198,42 @@ export function verifyCorrection(board: Board, options: VerifyCorrectionOptions)
   if (check.met && !low.met) warn('tolerance-low', warningText.toleranceLow(low.shortfalls));
   if (high.leadingLines.length && !check.leadingLines.length) warn('tolerance-high', warningText.toleranceHigh(high.leadingLines.map(label)));
 
+  // Judged at a metering point, the target says nothing of the equipment's own board: sized for the PF
+  // upstream, the bank can leave its own board leading. Said as solve says it of a board's own capacitors
+  // (the line-leading warning, below 0.90 leading), for the lines the equipment makes lead there.
+  if (meter) {
+    const limit = WARNING_THRESHOLDS.leadingLinePf;
+    const madeLead = after.phases.filter((p, k) => {
+      const b = before.phases[k]!;
+      return p.kW > 0 && p.sense === 'leading' && p.pf !== null && p.pf < limit && !(b.sense === 'leading' && b.pf !== null && b.pf <= p.pf);
+    });
+    if (madeLead.length) {
+      const through = (r: BoardResult) => r.phases.reduce((sum, p) => sum + p.kvar, 0);
+      warn(
+        'equipment-board-leading',
+        warningText.equipmentBoardLeading(
+          board.name,
+          target.measuredAt!,
+          madeLead.map((p) => ({ phase: label(p.phase), pf: p.pf! })),
+          limit,
+          { before: through(before), after: through(after) },
+          opts.lightLoad !== undefined,
+        ),
+        Math.min(...madeLead.map((p) => p.pf!)),
+        limit,
+      );
+    }
+  }
+
   const capacitorKvar = branches.reduce((s, b) => s + b.kvarAtAppliedV, 0);
   const rise = voltageRise(board, capacitorKvar, before, after, riseLimit);
   if (rise.flagged) warn('voltage-rise', warningText.voltageRise('the bank at the design load', Math.max(rise.estimatePercent ?? -Infinity, rise.solvedPercent), riseLimit), rise.solvedPercent, riseLimit);
   const ssc = shortCircuitVA(board);
-  const resonance = resonanceCapacitance(branches, after);
-  const resonanceOrder = ssc !== null && resonance.totalKvar > 0 ? Math.sqrt((ssc + resonance.reactorKvar * 1000) / (resonance.totalKvar * 1000)) : null;
-  if (resonanceOrder !== null && WATCHED_ORDERS.some((h) => Math.abs(resonanceOrder - h) <= 0.1 * h)) warn('resonance', warningText.lowResonance(resonanceOrder, resonance.onBoardKvar > 0 ? (resonance.addedKvar > 0 ? 'both' : 'board') : 'bank'), resonanceOrder, null);
+  const resonance = resonanceCapacitance(board, branches, after);
+  const sscX = resonance.reactanceShortCircuitKVA === null ? null : resonance.reactanceShortCircuitKVA * 1000;
+  const resonanceOrder = sscX !== null && resonance.totalKvar > 0 ? Math.sqrt((sscX + resonance.reactorKvar * 1000) / (resonance.totalKvar * 1000)) : null;
+  const nearOrders = resonanceOrder === null ? [] : resonanceNearOrders(resonanceOrder);
+  if (resonanceOrder !== null && nearOrders.length) warn('resonance', warningText.lowResonance(resonanceOrder, resonance.onBoardKvar > 0 ? (resonance.addedKvar > 0 ? 'both' : 'board') : 'bank', nearOrders), resonanceOrder, null);
   if (ssc === null && capacitorKvar > 0) warn('ideal-source', warningText.idealSource);
   const overloads = overloadsCaused(before, after);
   for (const o of overloads) warn('overload-caused', warningText.overloadCaused(o.message), o.value, o.threshold);
@@ -290,6 +332,7 @@ export function verifyCorrection(board: Board, options: VerifyCorrectionOptions)
     tolerance: { low: { capacitanceFactor: 1 - minus, check: low }, high: { capacitanceFactor: 1 + plus, check: high } },
     voltageRise: rise,
     resonanceOrder,
+    resonanceNearOrders: nearOrders,
     resonanceCapacitance: resonance,
     lightLoad,
     overloadsCaused: overloads.map((o) => ({ code: o.code, message: o.message })),

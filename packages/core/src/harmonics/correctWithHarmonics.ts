@@ -67,6 +67,7 @@ export interface CorrectionVariant {
   readonly resonantOrdersOtherBanksSwitched?: readonly number[];
   /** Worst capacitor duty over every state, as a fraction of its limit (≤ 1 is within). */
   readonly worstDutyRatio: number | null;
+  /** Within the duty limits in every state, and below the voltage the units stand continuously (IEC 60831-1: 1.00 U_N). */
   readonly dutyOk: boolean;
   /** Meets the target, no resonance near an order present, duty within limits. */
   readonly passes: boolean;
@@ -185,7 +186,7 @@ function asDetuned(report: CorrectionReport, p: number, percent: number, plainSe
     ...report,
     summary,
     warnings: withoutEstimate(report.warnings),
-    verification: { ...report.verification, resonanceOrder: null, warnings: withoutEstimate(report.verification.warnings) },
+    verification: { ...report.verification, resonanceOrder: null, resonanceNearOrders: [], warnings: withoutEstimate(report.verification.warnings) },
     selection: {
       ...selection,
       ...(plainSelection ? { catalogue: plainSelection.catalogue, catalogueTitle: plainSelection.catalogueTitle, catalogueNote: plainSelection.catalogueNote } : {}),
@@ -294,6 +295,10 @@ function variantOf<Check>(checkBank: BankChecker<Check>, board: Board, report: C
     ...(resonantOrders.length ? [`a step combination resonates with the supply within ±10 % of order ${checked.resonanceWords ?? resonantOrders.join(', ')}`] : []),
     ...(switched?.length ? [`with the other banks switched a step combination resonates within ±10 % of order ${switched.map((s) => `${s.order} (${s.words})`).join(', ')}`] : []),
     ...(duty && !duty.ok ? [`the capacitors exceed their duty limits in some state${checked.dutyWords ? ` (${checked.dutyWords})` : ''}`] : []),
+    // Within the 8-hour allowance is not within limits: a unit at its rated voltage continuously is rated too low.
+    ...(duty?.ok && duty.continuousVoltage?.reached
+      ? [`the capacitors run at or above the ${duty.continuousVoltage.limitPu.toFixed(2)} × rated voltage they stand continuously (IEC 60831-1; ${Math.max(duty.continuousVoltage.highestPu, duty.continuousVoltage.anyStatePu, duty.continuousVoltage.fundamentalPu).toFixed(3)} × at worst)`]
+      : []),
   ];
   // The capacitors' own nominal voltage: the highest over the branches built (a compensator has line-to-line
   // and line-to-neutral ones); where nothing is built, the arrangement's (star: line-to-neutral).
@@ -314,7 +319,7 @@ function variantOf<Check>(checkBank: BankChecker<Check>, board: Board, report: C
     resonantOrders,
     ...(switched ? { resonantOrdersOtherBanksSwitched: [...new Set(switched.map((s) => s.order))].sort((a, b) => a - b) } : {}),
     worstDutyRatio,
-    dutyOk: duty?.ok ?? true,
+    dutyOk: (duty?.ok ?? true) && !duty?.continuousVoltage?.reached,
     passes: reasons.length === 0,
     reasons,
   };

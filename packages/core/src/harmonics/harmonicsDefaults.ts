@@ -1,6 +1,8 @@
 /**
  * Every default of the harmonic study, with the reason for it, in one place.
  */
+import { CORRECTION_DEFAULTS } from '../correction/correctionDefaults.js';
+
 export const HARMONICS_DEFAULTS = {
   /**
    * Linear loads given by a rating (kW/pf...) are taken as R ‖ jX from their
@@ -22,8 +24,12 @@ export const HARMONICS_DEFAULTS = {
   scanStep: 0.05,
   /** A resonance within ±10 % of an injected order is flagged (the rule of thumb; common practice). */
   resonanceBand: 0.1,
-  /** Orders watched when no load has a spectrum: the usual characteristic orders. */
-  watchedOrders: [3, 5, 7, 11, 13],
+  /**
+   * Orders watched when no load has a spectrum: the same typical orders trivar correct flags a supply
+   * resonance near (CORRECTION_DEFAULTS.resonanceWatchedOrders, with why), so the two commands judge a
+   * bank's resonance alike.
+   */
+  watchedOrders: CORRECTION_DEFAULTS.resonanceWatchedOrders,
   /** A scan peak must stand this far (fraction of its height) above the valley beside it to count. */
   peakProminence: 0.05,
   /**

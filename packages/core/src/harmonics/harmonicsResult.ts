@@ -151,7 +151,11 @@ export interface ScanCombination {
   readonly label: string;
   /** Effective fundamental output of what is on, at nominal voltage, three-phase kvar. */
   readonly capacitorKvar: number;
-  /** √(S_sc/Q_c); null without a source impedance, without capacitors, or for a detuned bank (the formula does not apply). */
+  /**
+   * h = √(X_C/X_path) = √(S_sc,X/Q_c), S_sc,X from the supply path's reactance alone (the classic √(S_sc/Q_c) with
+   * S_sc from |Z| assumes X ≫ R); null without a source reactance, without capacitors, or for a detuned bank (the
+   * formula does not apply).
+   */
   readonly formulaOrder: number | null;
   /** |Z| per pair, per scanned order, ohm, rounded to 1e-6 of the curve's largest value (plotting data). */
   readonly impedanceOhm: readonly (readonly number[])[];
@@ -165,7 +169,7 @@ export interface ResonanceScan {
   readonly pairs: readonly string[];
   /** Short-circuit power at the board from the source and feeder impedance, kVA; null on an ideal source. */
   readonly shortCircuitKVA: number | null;
-  /** Orders a resonance is checked against: those injected or on the supply, else 3, 5, 7, 11, 13. */
+  /** Orders a resonance is checked against: those injected or on the supply, else the odd orders 3 … 19 (HARMONICS_DEFAULTS.watchedOrders). */
   readonly checkedOrders: readonly number[];
   readonly checkedOrdersFrom: 'spectra and background' | 'characteristic orders (no spectrum given)';
   readonly combinations: readonly ScanCombination[];
@@ -296,8 +300,34 @@ export interface CapacitorDuty {
    * 8 h in every 24 h): the highest rms voltage (with harmonics, per unit of rating) at nominal capacitance
    * with the loads as given, the running state, and the state it is in. Null otherwise.
    */
-  readonly continuousVoltage: { readonly limitPu: number; readonly highestPu: number; readonly label: string; readonly branch: string } | null;
+  readonly continuousVoltage: ContinuousVoltage | null;
   readonly ok: boolean;
+}
+
+/**
+ * The capacitors' voltage against what they stand continuously (IEC 60831-1: 1.00 U_N; the 1.10 U_N the
+ * duty limit allows is for 8 h in every 24 h): the running state, every state checked, and the
+ * fundamental alone.
+ */
+export interface ContinuousVoltage {
+  readonly limitPu: number;
+  /** The highest rms voltage (with harmonics, per unit of rating) at nominal capacitance with the loads as given: the running state. */
+  readonly highestPu: number;
+  readonly label: string;
+  readonly branch: string;
+  /**
+   * The highest rms voltage (with harmonics, per unit) in any state the bank can stay in — the loads as
+   * given, at every capacitance checked, other banks as they run — and where. (With every load off a
+   * controller switches steps out: that condition is left to the 8-hour duty limit.)
+   */
+  readonly anyStatePu: number;
+  readonly anyState: { readonly label: string; readonly branch: string; readonly condition: DutyCondition };
+  /** The highest fundamental voltage across a capacitor in those states, per unit of rating. */
+  readonly fundamentalPu: number;
+  /** The fundamental across the capacitors at the network's nominal voltage, per unit: U/(1 − p) over U_r. */
+  readonly nominalPu: number;
+  /** True where any of these reaches the continuous limit: the units run at or above their rated voltage. */
+  readonly reached: boolean;
 }
 
 export interface HarmonicsWarning {

@@ -75,8 +75,21 @@ export const harmonicsWarningText = {
       moreStates > 0 ? ` (likewise ${moreStates} more state${moreStates > 1 ? 's' : ''} of this bank)` : ''
     }; with every other bank fully on that state is clear of order ${order}, so voltages and capacitor currents are amplified there when the other banks step down`,
   capacitorDuty: (label: string, branch: string, what: string) => `with ${label} the capacitors of branch ${branch} exceed their limit: ${what}`,
-  continuousVoltage: (label: string, branch: string, pu: number, limit: number, ratedV: number) =>
-    `with ${label}, at nominal capacitance and the loads as given, the capacitors of branch ${branch} run at ${pu.toFixed(3)} × their rated voltage (rms with harmonics), above the ${limit.toFixed(2)} × they stand continuously (IEC 60831-1; the 1.10 × the duty check allows is for 8 h in every 24 h): units rated at least ${Math.ceil((pu * ratedV) / 5) * 5} V run within it`,
+  /**
+   * The units at or above the voltage they stand continuously: in the running state, in another state
+   * checked, or at the fundamental alone, with the nominal voltage's share of it and the rating that runs within it.
+   * @param capacitorV the fundamental across the capacitors at the network's nominal voltage, U/(1 − p), V
+   */
+  continuousVoltage: (c: { limitPu: number; highestPu: number; label: string; branch: string; anyStatePu: number; anyState: { label: string; branch: string; condition: string }; fundamentalPu: number; nominalPu: number }, ratedV: number, capacitorV: number) => {
+    const f3 = (x: number) => x.toFixed(3);
+    const running = Number(c.highestPu.toFixed(3)) >= c.limitPu;
+    const where = running
+      ? `with ${c.label}, at nominal capacitance and the loads as given, the capacitors of branch ${c.branch} run at ${f3(c.highestPu)} × their rated voltage (rms with harmonics)`
+      : `with ${c.anyState.label} (${c.anyState.condition}) the capacitors of branch ${c.anyState.branch} reach ${f3(c.anyStatePu)} × their rated voltage (rms with harmonics; ${f3(c.highestPu)} × in the running state)`;
+    const fundamental = `the fundamental alone reaches ${f3(c.fundamentalPu)} × (${(c.fundamentalPu * ratedV).toFixed(1)} V across ${ratedV.toFixed(0)} V units), and the nominal voltage alone puts ${capacitorV.toFixed(1)} V across them (${f3(c.nominalPu)} ×), no margin for a supply above nominal`;
+    const needed = Math.ceil((Math.max(c.highestPu, c.anyStatePu, c.fundamentalPu) * ratedV) / 5) * 5;
+    return `${where}: at or above the ${c.limitPu.toFixed(2)} × they stand continuously (IEC 60831-1, from memory; the 1.10 × the duty check allows is for 8 h in every 24 h), so they are not within their limits in service; ${fundamental}. Units rated at least ${needed} V stand it; IEC practice rates them 10 % above the voltage they see, ${(capacitorV * 1.1).toFixed(1)} V or more here`;
+  },
   voltageThd: (bus: string, thd: number, limit: number, basisName: string) => `voltage THD at the board on ${bus} is ${above(thd, limit)}, above ${levelText(limit)} % (${basisName})`,
   /** Each order over its level, with the level: `L1-N h9 2.0 % (level 1.5 %)`; a flat limit is named once. */
   voltageIndividual: (buses: readonly BusVoltageDistortion[], check: Pick<VoltageDistortionCheck, 'basisName' | 'individualLimitPercent'>) => {

@@ -2,7 +2,8 @@
  * Frequency scan of the impedance seen from the board — each phase to the
  * neutral bar and each line pair — for every step combination of the bank,
  * with the parallel-resonance peaks found and refined, beside the classic
- * estimate h_r = √(S_sc/Q_c) [METHODS §5].
+ * estimate h_r = √(X_C/X_path) [METHODS §5] (from the path's reactance: the
+ * usual √(S_sc/Q_c) assumes X ≫ R).
  *
  * Loads enter at the admittance of the solved fundamental (all steps on),
  * scaled to each order like the harmonic solve (networkAtOrder.ts); non-linear
@@ -13,7 +14,7 @@
 import { abs } from '../complex.js';
 import type { Board } from '../board/boardModel.js';
 import type { NetworkSolution } from '../network/solveNetwork.js';
-import { supplyPathImpedance } from '../network/installationModel.js';
+import { reactanceShortCircuitVA, supplyPathImpedance } from '../network/installationModel.js';
 import { createBoardScanEvaluator, type ScanEvaluator } from './scanEvaluator.js';
 import { HARMONICS_DEFAULTS } from './harmonicsDefaults.js';
 import { stateKey, type BankModel, type HarmonicModel } from './harmonicModel.js';
@@ -210,11 +211,13 @@ export function scanResonance(fundamental: NetworkSolution, model: HarmonicModel
     if (firstOf[c] !== c) values[c] = values[firstOf[c]!]!;
   });
   const ssc = shortCircuitVA(board);
+  // The estimate beside the scan: from the path's reactance, as the scan's peak sits (see reactanceShortCircuitVA).
+  const sscX = reactanceShortCircuitVA(board);
   const shared = new Map<number, Pick<ScanCombination, 'impedanceOhm' | 'peaks'>>();
   const combinations = combos.map((steps, c): ScanCombination => {
     const kvar = bank ? bankKvarOn(board, bank, steps) : 0;
     const label = combinationLabel(bank, steps);
-    const formulaOrder = ssc !== null && kvar > 0 && (bank?.detuning ?? 0) === 0 ? Math.sqrt(ssc / (kvar * 1000)) : null;
+    const formulaOrder = sscX !== null && kvar > 0 && (bank?.detuning ?? 0) === 0 ? Math.sqrt(sscX / (kvar * 1000)) : null;
     const same = shared.get(firstOf[c]!);
     if (same) return { steps, label, capacitorKvar: kvar, formulaOrder, impedanceOhm: same.impedanceOhm, peaks: same.peaks, nearOrders: ordersNear(same.peaks, options.checkedOrders) };
     const { curves, peaks } = refinedPeaks(evaluator, grid, values[c]!, (out) => evaluator.impedances(steps, out, 0));

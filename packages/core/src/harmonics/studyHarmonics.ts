@@ -28,7 +28,7 @@ import type { HarmonicsBoardSpec } from './harmonicsSpec.js';
 import { harmonicsCautions, harmonicsWarningText, harmonicsWording, neutralPractice } from './harmonicsWording.js';
 import { powerReading } from '../analysis/powerReading.js';
 import { bankRatingIssue, bankRatingWarningOn, boardNominalPair } from './bankRatingCheck.js';
-import type { CapacitorDuty, DistortionReading, DutyCase, DutyCondition, HarmonicLineReading, HarmonicsPowerFactor, HarmonicsReport, HarmonicsWarning, NeutralCheck, ResonanceScan, TddCheck, VoltageDistortionCheck } from './harmonicsResult.js';
+import type { CapacitorDuty, ContinuousVoltage, DistortionReading, DutyCase, DutyCondition, HarmonicLineReading, HarmonicsPowerFactor, HarmonicsReport, HarmonicsWarning, NeutralCheck, ResonanceScan, TddCheck, VoltageDistortionCheck } from './harmonicsResult.js';
 import { conventionsOf } from '../board/conventions/boardConventions.js';
 import { regionWords, type RegionWords } from '../board/conventions/regionWords.js';
 import { labelIn } from '../board/conventions/phaseNames.js';
@@ -194,6 +194,11 @@ export function capacitorDuty(board: Board, model: HarmonicModel, solveOrders: D
   const cases: DutyCase[] = [];
   const nominalCases: DutyCase[] = [];
   let highestCapacitorVoltageV = 0;
+  // The highest rms and fundamental voltage with the loads as given, at any capacitance and with the other
+  // banks as they run: states a bank can stay in, so the continuous check reads them beside the running
+  // state. With every load off a controller switches steps out; that row is the 8-hour allowance's.
+  let highestRms: DutyCase | null = null;
+  let highestInServiceV = 0;
   // States that switch electrically identical parts (equal steps) are one state: solve each once.
   const seen = new Set<string>();
   for (const steps of stepCombinations(bank.stepLoads.length)) {
@@ -212,6 +217,10 @@ export function capacitorDuty(board: Board, model: HarmonicModel, solveOrders: D
       if (!c) continue;
       if (condition.capacitancePercent === 100 && condition.loads === 'as given' && (condition.otherBanks === undefined || condition.otherBanks === 'on')) nominalCases.push(c);
       highestCapacitorVoltageV = Math.max(highestCapacitorVoltageV, c.capacitorVoltageV);
+      if (condition.loads === 'as given' && condition.otherBanks !== 'off') {
+        if (!highestRms || c.figures.voltageRms > highestRms.figures.voltageRms) highestRms = c;
+        highestInServiceV = Math.max(highestInServiceV, c.capacitorVoltageV);
+      }
       if (!worst || ratio(c) > ratio(worst)) worst = c;
     }
     if (worst) cases.push(worst);
@@ -234,9 +243,28 @@ export function capacitorDuty(board: Board, model: HarmonicModel, solveOrders: D
     worst: worstOf(cases),
     worstNominal: worstOf(nominalCases),
     highestCapacitorVoltageV,
-    continuousVoltage:
-      continuousPu === null || running === null ? null : { limitPu: continuousPu, highestPu: running.figures.voltageRms, label: running.label, branch: running.branch },
+    continuousVoltage: continuousPu === null || running === null || highestRms === null ? null : continuousVoltage(continuousPu, running, highestRms, highestInServiceV / bank.ratedV, vNetwork / (1 - bank.detuning) / bank.ratedV),
     ok: cases.every((c) => c.ok),
+  };
+}
+
+/**
+ * The continuous check: a unit at or above its rated voltage continuously is not within its limits,
+ * whatever the 8-hour allowance says. "Reaches" is read on the figures as printed (3 decimals), so a
+ * unit shown at 1.000 × rated is not called below it.
+ */
+function continuousVoltage(limitPu: number, running: DutyCase, highest: DutyCase, fundamentalPu: number, nominalPu: number): ContinuousVoltage {
+  const reaches = (pu: number) => Number(pu.toFixed(3)) >= limitPu;
+  return {
+    limitPu,
+    highestPu: running.figures.voltageRms,
+    label: running.label,
+    branch: running.branch,
+    anyStatePu: highest.figures.voltageRms,
+    anyState: { label: highest.label, branch: highest.branch, condition: highest.condition },
+    fundamentalPu,
+    nominalPu,
+    reached: reaches(running.figures.voltageRms) || reaches(highest.figures.voltageRms) || reaches(fundamentalPu),
   };
 }
 
@@ -332,10 +360,18 @@ export function harmonicsWarnings({ scan, neutral, voltageDistortion, duty, tdd,
   if (duty)
     for (const c of duty.cases)
       if (!c.ok) warn('capacitor-duty', harmonicsWarningText.capacitorDuty(`${c.label} (${conditionWords(c.condition)})`, label(c.branch), dutyMessage(c, duty.limits)), dutyRatio(c.figures, duty.limits), 1);
-  // Within the 8-hour limit (past it, the duty warning says so) but above the continuous rating in the running state: units rated too low.
-  const running = duty?.continuousVoltage;
-  if (duty && running && running.highestPu > running.limitPu * (1 + 1e-9) && running.highestPu <= duty.limits.voltageRms)
-    warn('capacitor-continuous-voltage', harmonicsWarningText.continuousVoltage(running.label, label(running.branch), running.highestPu, running.limitPu, duty.ratedV), running.highestPu, running.limitPu);
+  // Within the 8-hour limit (past it, the duty warning says so) but at or above the continuous rating, in the
+  // running state, in any state checked, or at the fundamental alone: units rated too low.
+  const cont = duty?.continuousVoltage;
+  if (duty && cont?.reached && Math.max(cont.highestPu, cont.anyStatePu, cont.fundamentalPu) <= duty.limits.voltageRms) {
+    const worst = Math.max(cont.highestPu, cont.anyStatePu, cont.fundamentalPu);
+    warn(
+      'capacitor-continuous-voltage',
+      harmonicsWarningText.continuousVoltage({ ...cont, branch: label(cont.branch), anyState: { ...cont.anyState, branch: label(cont.anyState.branch), condition: conditionWords(cont.anyState.condition) } }, duty.ratedV, duty.capacitorVoltageV),
+      worst,
+      cont.limitPu,
+    );
+  }
   if (tdd)
     for (const l of tdd.lines) {
       const over = l.orders.filter((o) => !o.ok).map((o) => o.order);

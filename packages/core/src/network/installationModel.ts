@@ -114,3 +114,16 @@ export function supplyPathImpedance(board: Board): ComplexValue {
   }
   return z;
 }
+
+/**
+ * The short-circuit power the supply path's reactance alone gives, n·V²/X_path, VA: what a parallel
+ * resonance of shunt capacitors with the supply is worked from, h = √(X_C/X_path) = √(S_sc,X/Q_C).
+ * The classic √(S_sc/Q_C) takes S_sc from |Z|, which is right only where X ≫ R: behind a long or small
+ * cable feeder R is not small, |Z| overstates the path's inductance and names too low an order (a bank
+ * whose scan peaks near the 11th estimated at 8.4). The resistance damps the peak; it hardly moves it.
+ * null where the path has no reactance (an ideal source, or resistance only).
+ */
+export function reactanceShortCircuitVA(board: Board): number | null {
+  const x = supplyPathImpedance(board).im;
+  return x > 0 ? (board.phases.length * board.nominalLineToNeutralV ** 2) / x : null;
+}

@@ -13,7 +13,7 @@ import { exportingLinesNote, isExportCurrentA, linePfText } from '../powerFactor
 import { renderPhasorDiagram } from '../renderPhasorDiagram.js';
 import { renderCurrentTriangles } from '../renderCurrentTriangles.js';
 import type { ReportBlock, ReportSection } from './reportDocument.js';
-import { CHARACTERISTIC_ORDERS, RESONANCE_NEAR_FRACTION } from './reportWording.js';
+import { CORRECTION_DEFAULTS } from '../../correction/correctionDefaults.js';
 import { labellerOf } from '../../board/conventions/phaseNames.js';
 import { starWordOf, type StarWord } from '../../board/conventions/regionWords.js';
 
@@ -226,8 +226,11 @@ export function resonanceSection(report: CorrectionReport): ReportSection | null
   const h = report.verification.resonanceOrder;
   if (h === null) return null;
   const f = h * report.verification.before.board.frequencyHz;
-  const near = CHARACTERISTIC_ORDERS.filter((n) => Math.abs(h - n) <= RESONANCE_NEAR_FRACTION * n);
+  const near = report.verification.resonanceNearOrders;
+  const watched = CORRECTION_DEFAULTS.resonanceWatchedOrders;
+  const band = CORRECTION_DEFAULTS.resonanceNearFraction;
   const sc = report.verification.voltageRise.shortCircuitKVA;
+  const c = report.verification.resonanceCapacitance;
   return {
     id: 'harmonics',
     title: 'Harmonics and resonance',
@@ -237,12 +240,13 @@ export function resonanceSection(report: CorrectionReport): ReportSection | null
         items: [
           ['Short-circuit power at the board', sc === null ? '—' : `${fixed(sc, 0)} kVA`],
           ['Capacitive output considered', capacitanceWords(report.verification.resonanceCapacitance)],
-          [`Parallel resonance with the supply, h = ${report.verification.resonanceCapacitance.reactorKvar > 0 ? '√((Ssc + QL)/Qc)' : '√(Ssc/Qc)'}`, `order ${fixed(h, 2)} (${fixed(f, 0)} Hz)`],
+          ['Reactance of the supply path', c.supplyReactanceOhm === null ? '—' : `${fixed(c.supplyReactanceOhm, 4)} Ω (S_sc,X = ${fixed(c.reactanceShortCircuitKVA ?? 0, 0)} kVA)`],
+          [`Parallel resonance with the supply, h = ${c.reactorKvar > 0 ? '√((Ssc,X + QL)/Qc)' : '√(Xc/Xpath)'}`, `order ${fixed(h, 2)} (${fixed(f, 0)} Hz)`],
         ],
       },
       near.length
-        ? { kind: 'list', tone: 'warning', items: [`The resonance lies within ${fixed(100 * RESONANCE_NEAR_FRACTION, 0)} % of harmonic order ${near.join(', ')}, which common non-linear loads produce: a harmonic study and detuning reactors are strongly advised.`] }
-        : { kind: 'paragraph', text: `The resonance is not within ${fixed(100 * RESONANCE_NEAR_FRACTION, 0)} % of orders ${CHARACTERISTIC_ORDERS.join(', ')}. This is an estimate from the short-circuit power only; it does not replace a harmonic study of the board.` },
+        ? { kind: 'list', tone: 'warning', items: [`The resonance lies within ${fixed(100 * band, 0)} % of harmonic order ${near.join(', ')}, which common non-linear loads produce: a harmonic study and detuning reactors are strongly advised.`] }
+        : { kind: 'paragraph', text: `The resonance is not within ${fixed(100 * band, 0)} % of orders ${watched.join(', ')}. This is an estimate from the supply path's reactance only (its resistance damps the peak but hardly moves it; the classic √(Ssc/Qc) with Ssc from |Z| assumes X ≫ R); it does not replace a harmonic study of the board.` },
     ],
   };
 }

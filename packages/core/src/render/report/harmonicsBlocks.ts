@@ -150,7 +150,7 @@ export function scanBlocks(scan: ResonanceScan, place: ScanPlace): ReportBlock[]
     {
       kind: 'table',
       caption: `Resonance with the supply${place.seenFrom ?? ''}${scan.shortCircuitKVA === null ? '' : ` (short-circuit power ${fixed(scan.shortCircuitKVA, 0)} kVA)`}`,
-      columns: [{ label: 'Bank state' }, { label: 'kvar on', align: 'right' }, { label: '√(Ssc/Qc)', align: 'right' }, { label: 'Scanned peaks (h)' }, { label: 'Near orders' }],
+      columns: [{ label: 'Bank state' }, { label: 'kvar on', align: 'right' }, { label: '√(Xc/Xpath)', align: 'right' }, { label: 'Scanned peaks (h)' }, { label: 'Near orders' }],
       rows: scan.combinations.map((c) => [
         c.label,
         fixed(c.capacitorKvar, 1),
@@ -207,7 +207,14 @@ export function dutyBlocks(d: CapacitorDuty, label: PhaseLabeller): ReportBlock[
         ['Worst state', `${w.label}, branch ${label(w.branch)}, ${conditionWords(w.condition)} (checked at capacitance −${d.capacitanceTolerance.minusPercent} %, nominal and +${d.capacitanceTolerance.plusPercent} %, loads as given and all off${d.conditions.some((c) => c.otherBanks) ? ', other banks on, out of service and in any state the joint scan finds near a checked order' : ''})`],
         ['Highest capacitor voltage (fundamental)', `${fixed(d.highestCapacitorVoltageV, 1)} V`],
         ['V rms / V peak / I rms / kvar (per unit)', `${fixed(w.figures.voltageRms, 2)} / ${fixed(w.figures.voltagePeak, 2)} / ${fixed(w.figures.currentRms, 2)} / ${fixed(w.figures.kvar, 2)}`],
-        ['Duty verdict', d.ok ? 'within limits in every state' : 'LIMIT EXCEEDED in at least one state'],
+        [
+          'Duty verdict',
+          !d.ok
+            ? 'LIMIT EXCEEDED in at least one state'
+            : d.continuousVoltage?.reached
+              ? `within the 8-hour limits, but at or above the ${fixed(d.continuousVoltage.limitPu, 2)} × rated voltage the units stand continuously (IEC 60831-1): units rated too low`
+              : 'within limits in every state',
+        ],
       ],
     },
     { kind: 'paragraph', text: d.limitsSource },

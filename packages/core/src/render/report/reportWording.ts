@@ -57,18 +57,10 @@ export const THREE_PHASE_STANDARDS: readonly StandardReference[] = [
 export const correctionStandards = (star: StarWord): readonly StandardReference[] => [
   { name: 'IEC 60831-1', use: 'low-voltage shunt capacitors: capacitance tolerance, permitted voltage and current, discharge' },
   { name: 'IEEE Std 18', use: 'shunt power capacitors: continuous voltage, current and kvar limits' },
-  { name: 'IEEE Std 1036', use: 'application of shunt capacitors: voltage rise ΔV/V ≈ Qc/Ssc and parallel resonance order h = √(Ssc/Qc)' },
+  { name: 'IEEE Std 1036', use: 'application of shunt capacitors: voltage rise ΔV/V ≈ Qc/Ssc and parallel resonance order h = √(Ssc/Qc), worked here from the supply path\'s reactance, h = √(Xc/Xpath), as the formula assumes X ≫ R' },
   { name: 'NEC Article 460', use: 'capacitor installations: discharge and conductor sizing (where the NEC applies)' },
   { name: 'Steinmetz / Gyugyi balancing compensator', use: `delta and ${star} reactive branches that balance an unbalanced load` },
 ];
-
-/** Harmonic orders that common six-pulse loads produce, where a resonance is worth a caution. */
-export const CHARACTERISTIC_ORDERS: readonly number[] = [3, 5, 7, 11, 13];
-/**
- * A resonance within this fraction of a characteristic order is flagged (common practice, no source:
- * detuned banks are placed well below the 5th, e.g. at 4.3 or 3.8).
- */
-export const RESONANCE_NEAR_FRACTION = 0.1;
 
 export const INSTALLATION_ASSUMPTIONS: readonly string[] = [
   'The installation is radial: every board is fed by one feeder from one other board, and all boards are solved together as one network, so a load on one board moves the voltages of every other board.',
