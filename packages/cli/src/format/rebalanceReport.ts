@@ -67,8 +67,11 @@ function scoreDigits(xs: readonly number[]): number {
 }
 
 function verdict(r: RebalanceReport): string {
+  // Where the file rates conductors or supply units, the search kept them: the proof is over those answers.
   const proof = r.proven
-    ? 'proven best'
+    ? r.ratingsKept
+      ? "proven best within the file's ratings"
+      : 'proven best'
     : r.score.gapPercent !== null
       ? `best found; at most ${fixed(r.score.gapPercent, 2)} % (${score(r.score.gap ?? 0)}) above the best possible`
       : 'best found; no bound';
