@@ -19,6 +19,10 @@ import {
   solveInstallation,
 } from '@trivar/core';
 import { expectClose } from '../support/tolerance.js';
+import { runTrivar } from '../cli/runTrivar.js';
+import { mkdtempSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
 
 const OVERLOADS = ['line-over-rating', 'neutral-over-rating', 'transformer-overload', 'source-unit-overload'];
 
@@ -159,5 +163,54 @@ describe('rebalance on a board already over a rating', () => {
     expectClose(after.phases[0]!.current.magnitude, 61.45, { rel: 0, abs: 0.01 }, 'line A after');
     expect(report.capacityExceeded).toEqual([]);
     expect(report.notes.join('\n')).toContain('61.4 A after the moves (within it). The moves bring it within.');
+  });
+});
+
+/**
+ * A 4 mm² line C 150 m long, rated 30 A, with constant-power loads: its voltage sags far more once loaded
+ * than the present 4.8 A shows, so the fast model's answer (within 30 A there) reads 32.4 A in the re-solve.
+ * The report says so first, lists it in capacityExceeded as new, and the text verdict does not call it
+ * simply proven best.
+ */
+const smithy = `name: Long Acre smithy
+supply: { voltage: 230/400, frequencyHz: 50, transformer: { kVA: 100, impedancePercent: 4, xOverR: 3 } }
+feeder:
+  line:
+    A: { lengthM: 20, mm2: 35, ratingA: 125 }
+    B: { lengthM: 20, mm2: 35, ratingA: 125 }
+    C: { lengthM: 150, mm2: 4, ratingA: 30 }
+  neutral: { lengthM: 20, mm2: 35, ratingA: 125 }
+loads:
+  - { name: Forge blower, connection: A-N, kW: 6, model: constant-power }
+  - { name: Power hammer, connection: A-N, kW: 5.5, model: constant-power }
+  - { name: Grinder, connection: A-N, kW: 5, model: constant-power }
+  - { name: Drill press, connection: B-N, kW: 4.7, model: constant-power }
+  - { name: Saw, connection: B-N, kW: 3.3, model: constant-power }
+  - { name: Yard lights, connection: C-N, kW: 1.1, model: constant-power }
+`;
+
+describe('a rating the re-solve puts over where the fast model kept it', () => {
+  it('is the first note, a new entry of capacityExceeded, and what solve of the rewritten file warns of', () => {
+    const { report, after } = rebalanceText(smithy);
+    expect(report.capacityExceeded).toHaveLength(1);
+    expect(report.capacityExceeded[0]).toMatchObject({ conductor: 'line', line: 'C', limit: 'rating', capacityA: 30, change: 'new' });
+    expectClose(report.capacityExceeded[0]!.currentA, 32.42, { rel: 0, abs: 0.01 }, 'line C after, re-solved');
+    expectClose(report.capacityExceeded[0]!.nowA, 4.84, { rel: 0, abs: 0.01 }, 'line C now');
+    expect(report.notes[0]).toBe(
+      '! These moves overload what the file rates: line C would carry 32.4 A against its rating of 30.0 A (now 4.8 A). trivar solve of the rewritten file warns of it. The search kept the fast model within the ratings; the network re-solve differs here: do not make these moves as they stand (pin a circuit, or lower the move limit, and run again).',
+    );
+    expect(after.warnings.filter((w) => OVERLOADS.includes(w.code)).map((w) => w.message)).toEqual(['line C carries 32.4 A, above its rating of 30.0 A']);
+  });
+
+  it('trivar rebalance: the verdict line points at the note instead of saying proven best', () => {
+    const dir = mkdtempSync(join(tmpdir(), 'trivar-ratings-'));
+    const file = join(dir, 'smithy.yaml');
+    writeFileSync(file, smithy);
+    const r = runTrivar(['rebalance', file, '--no-table']);
+    expect(r.code).toBe(0);
+    // Read as running text: the report wraps at 100 columns.
+    const flat = r.stdout.replace(/\s+/g, ' ');
+    expect(flat).toContain("proven best within the file's ratings by the fast model, but the network re-solve puts a rating over (see the first note)");
+    expect(flat).toContain('Notes * ! These moves overload what the file rates: line C would carry 32.4 A');
   });
 });
