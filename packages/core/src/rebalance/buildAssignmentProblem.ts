@@ -58,7 +58,15 @@ export interface BuiltProblem {
    * wiring is over it, the present figure (a move set may not make an overload worse). Line and neutral
    * currents at every rated board's incomer.
    */
-  readonly rated: readonly { readonly quantity: number; readonly ratingA: number; readonly limitA: number }[];
+  readonly rated: readonly {
+    readonly quantity: number;
+    readonly ratingA: number;
+    readonly limitA: number;
+    /** Condition and board number it is read in and at; the line (index into phases), or null for the neutral. */
+    readonly condition: number;
+    readonly board: number;
+    readonly line: number | null;
+  }[];
 }
 
 /** Balanced nominal phase voltages of the scoring model, in `board.phases` order. */
@@ -252,7 +260,7 @@ export function buildAssignmentProblem(
   });
 
   // The file's ratings at every board's incomer, measured or not: rows of their own where the score reads none.
-  const ratedRows: { quantity: number; ratingA: number }[] = [];
+  const ratedRows: { quantity: number; ratingA: number; condition: number; board: number; line: number | null }[] = [];
   study.conditions.forEach((_, c) =>
     tree.boards.forEach((b, p) => {
       const rated = ratedCurrentLimits(b, p === 0);
@@ -263,11 +271,11 @@ export function buildAssignmentProblem(
       rated.lineA.forEach((ratingA, k) => {
         if (ratingA === Infinity) return;
         const quantity = layout ? layout.lines[k]! : rows.push({ weights: unit[k]!, perBoard, condition: c, constant: ZERO }) - 1;
-        ratedRows.push({ quantity, ratingA: ratingA * scale });
+        ratedRows.push({ quantity, ratingA: ratingA * scale, condition: c, board: p, line: k });
       });
       if (rated.neutralA !== Infinity) {
         const quantity = layout && layout.neutral >= 0 ? layout.neutral : rows.push({ weights: ones, perBoard, condition: c, constant: ZERO }) - 1;
-        ratedRows.push({ quantity, ratingA: rated.neutralA * scale });
+        ratedRows.push({ quantity, ratingA: rated.neutralA * scale, condition: c, board: p, line: null });
       }
     }),
   );
@@ -309,9 +317,9 @@ export function buildAssignmentProblem(
   };
   // A rating the present wiring is already over limits the quantity to its present figure: not made worse.
   const now = magnitudesOf(sumQuantities(problem, homeChoice(problem)), new Float64Array(q));
-  const rated = ratedRows.map(({ quantity, ratingA }) => {
-    limits[quantity] = Math.min(limits[quantity]!, Math.max(ratingA, now[quantity]!));
-    return { quantity, ratingA, limitA: Math.max(ratingA, now[quantity]!) };
+  const rated = ratedRows.map((row) => {
+    limits[row.quantity] = Math.min(limits[row.quantity]!, Math.max(row.ratingA, now[row.quantity]!));
+    return { ...row, limitA: Math.max(row.ratingA, now[row.quantity]!) };
   });
   let singleQuantity: number | null = null;
   const aimed = (Object.keys(study.aim) as (keyof typeof study.aim)[]).filter((k) => study.aim[k] > 0);

@@ -292,6 +292,43 @@ function capacityExcesses(built: BuiltProblem, study: ResolvedRebalance, choice:
   return out.sort((a, b) => b.overA - a.overA);
 }
 
+/** Searches after the first that a rating the re-solve puts over may ask for (each tightens the limits it broke). */
+const RATING_PASSES = 3;
+
+/**
+ * Tightens the fast model's limit on each quantity whose rating the re-solve of an answer put over (or further
+ * over): by the ratio of the rating (or the present figure) to the re-solved one, a little more. A supply unit's
+ * or the transformer's rating limits the lines it carries. False when there was nothing to tighten.
+ */
+function tightenRatedLimits(built: BuiltProblem, tree: RebalanceTree, over: readonly CapacityExcess[]): boolean {
+  let tightened = false;
+  for (const e of over) {
+    if (e.change === 'unchanged' || !(e.currentA > 0)) continue;
+    const b = tree.names.indexOf(e.board);
+    const board = tree.boards[b]!;
+    // Every condition is read at each measured board, so a layout names its index.
+    const condition = built.layouts.find((l) => l.name === e.condition)!.condition;
+    const lines: (number | null)[] =
+      e.conductor === 'neutral'
+        ? [null]
+        : e.conductor === 'line'
+          ? [board.phases.indexOf(e.line!)]
+          : e.conductor === 'source-unit'
+            ? [board.phases.indexOf(board.sourceUnits!.find((u) => u.winding === e.winding)!.line)]
+            : board.phases.map((_, k) => k);
+    const ratio = ((e.change === 'new' ? e.capacityA : e.nowA) / e.currentA) * (1 - TIGHTEN_MARGIN);
+    for (const r of built.rated)
+      if (r.board === b && r.condition === condition && lines.includes(r.line)) {
+        built.problem.limits[r.quantity] = Math.min(built.problem.limits[r.quantity]!, built.problem.limits[r.quantity]! * ratio);
+        tightened = true;
+      }
+  }
+  return tightened;
+}
+
+/** Beyond the ratio, so the next answer is not one on the edge the re-solve tips over again. */
+const TIGHTEN_MARGIN = 0.002;
+
 /** The problem with the study's line capacities only: what the file's ratings cost, for a note. */
 function withoutRatings(built: BuiltProblem, study: ResolvedRebalance): AssignmentProblem {
   const limits = new Float64Array(built.problem.quantityCount).fill(Infinity);
@@ -419,73 +456,87 @@ export function rebalanceInstallation(installation: Installation, study: unknown
   checkCapacity(built, resolved, tie);
 
   const search: Search = { p, single: built.singleQuantity, termBound: o.objective ? null : termBoundFor(p, built.layouts, resolved.aim, resolved.combine) };
-  const main = answerWithin(search, limit, o, tie, []);
-  let chosen = main;
-  let table: MoveTableRow[] | null = null;
-  const wantTable = o.moveTable || resolved.nearBestPercent !== null;
-  if (wantTable) {
-    const rows: { moves: number; answer: Answer }[] = [];
-    const rowOf = (m: number, previous: Answer | null): Answer => {
-      const row: Answer = m === limit ? main : answerWithin(search, m, o, tie, previous ? [main.best, previous.best] : [main.best]);
-      // An answer with fewer moves is allowed with more: rows never get worse.
-      return previous && previous.best.score <= row.best.score - tie && previous.best.excess <= tie ? { ...row, best: previous.best } : row;
-    };
-    let previous: Answer | null = null;
-    for (const m of tableMoveCounts(forced, limit)) {
-      const row = rowOf(m, previous);
-      rows.push({ moves: m, answer: row });
-      previous = row;
-      if (row.best.excess <= tie && row.best.score <= main.best.score + tie && row.best.moves <= main.best.moves) break;
-    }
-    // A row's search can end better than the unlimited one (both are local searches): the answer given
-    // is then that row's, so the work order never scores worse than a line of the table beside it.
-    for (const { answer } of rows) {
-      const a = answer.best;
-      const c = chosen.best;
-      // Its bound is for its own (smaller) move limit: the answer keeps the whole limit's.
-      if (a.excess <= tie && (c.excess > tie || a.score < c.score - tie || (a.score <= c.score + tie && a.moves < c.moves)))
-        // Likewise whether branch-and-bound over the whole limit stopped at its budget.
-        chosen = { ...answer, lowerBound: main.lowerBound, proven: main.lowerBound !== null && main.lowerBound >= a.score - tie, budgetReached: main.budgetReached };
-    }
-    if (resolved.nearBestPercent !== null) {
-      const best = Math.min(main.best.score, ...rows.map((r) => r.answer.best.score));
-      const target = best * (1 + resolved.nearBestPercent / 100) + tie;
-      const near = (a: Answer) => a.best.score <= target && a.best.excess <= tie;
-      let at = rows.findIndex((r) => near(r.answer));
-      // Between two counts the table steps over, the fewest moves that come within the target, by bisection.
-      // Each probe goes into the table; `at` stays on the first row within the target.
-      while (at > 0 && rows[at]!.moves - rows[at - 1]!.moves > 1) {
-        const m = Math.floor((rows[at - 1]!.moves + rows[at]!.moves) / 2);
-        const row = rowOf(m, rows[at - 1]!.answer);
-        rows.splice(at, 0, { moves: m, answer: row });
-        if (!near(row)) at++;
+  /** The answer, its move table and the chosen row, searched over the problem's present limits. */
+  const searchAnswers = () => {
+    const main = answerWithin(search, limit, o, tie, []);
+    let chosen = main;
+    let table: MoveTableRow[] | null = null;
+    const wantTable = o.moveTable || resolved.nearBestPercent !== null;
+    if (wantTable) {
+      const rows: { moves: number; answer: Answer }[] = [];
+      const rowOf = (m: number, previous: Answer | null): Answer => {
+        const row: Answer = m === limit ? main : answerWithin(search, m, o, tie, previous ? [main.best, previous.best] : [main.best]);
+        // An answer with fewer moves is allowed with more: rows never get worse.
+        return previous && previous.best.score <= row.best.score - tie && previous.best.excess <= tie ? { ...row, best: previous.best } : row;
+      };
+      let previous: Answer | null = null;
+      for (const m of tableMoveCounts(forced, limit)) {
+        const row = rowOf(m, previous);
+        rows.push({ moves: m, answer: row });
+        previous = row;
+        if (row.best.excess <= tie && row.best.score <= main.best.score + tie && row.best.moves <= main.best.moves) break;
       }
-      const row = at >= 0 ? rows[at]! : null;
-      if (row && row.moves < limit) chosen = answerWithin(search, row.moves, o, tie, [main.best]);
+      // A row's search can end better than the unlimited one (both are local searches): the answer given
+      // is then that row's, so the work order never scores worse than a line of the table beside it.
+      for (const { answer } of rows) {
+        const a = answer.best;
+        const c = chosen.best;
+        // Its bound is for its own (smaller) move limit: the answer keeps the whole limit's.
+        if (a.excess <= tie && (c.excess > tie || a.score < c.score - tie || (a.score <= c.score + tie && a.moves < c.moves)))
+          // Likewise whether branch-and-bound over the whole limit stopped at its budget.
+          chosen = { ...answer, lowerBound: main.lowerBound, proven: main.lowerBound !== null && main.lowerBound >= a.score - tie, budgetReached: main.budgetReached };
+      }
+      if (resolved.nearBestPercent !== null) {
+        const best = Math.min(main.best.score, ...rows.map((r) => r.answer.best.score));
+        const target = best * (1 + resolved.nearBestPercent / 100) + tie;
+        const near = (a: Answer) => a.best.score <= target && a.best.excess <= tie;
+        let at = rows.findIndex((r) => near(r.answer));
+        // Between two counts the table steps over, the fewest moves that come within the target, by bisection.
+        // Each probe goes into the table; `at` stays on the first row within the target.
+        while (at > 0 && rows[at]!.moves - rows[at - 1]!.moves > 1) {
+          const m = Math.floor((rows[at - 1]!.moves + rows[at]!.moves) / 2);
+          const row = rowOf(m, rows[at - 1]!.answer);
+          rows.splice(at, 0, { moves: m, answer: row });
+          if (!near(row)) at++;
+        }
+        const row = at >= 0 ? rows[at]! : null;
+        if (row && row.moves < limit) chosen = answerWithin(search, row.moves, o, tie, [main.best]);
+      }
+      table = rows.map(({ moves, answer: a }) => ({ moves, score: a.best.score, lowerBound: a.lowerBound, proven: a.proven, movesUsed: a.best.moves, withinCapacity: a.best.excess <= tie }));
     }
-    table = rows.map(({ moves, answer: a }) => ({ moves, score: a.best.score, lowerBound: a.lowerBound, proven: a.proven, movesUsed: a.best.moves, withinCapacity: a.best.excess <= tie }));
+    return { main, chosen, table };
+  };
+  /** The work order of an answer and the installation re-solved with it. */
+  const outcomeOf = (choice: Int32Array) => {
+    const moves: CircuitMove[] = [];
+    const moveMap = new Map<number, ConnectionSpec>();
+    built.slots.forEach((slot, i) => {
+      const to = slot.options[choice[i]!]!;
+      if (to !== slot.present) {
+        const board = tree.boards[tree.circuits[slot.flat]!.board]!;
+        const schedule = board.loads[slot.loadIndex]!.schedule;
+        const circuit = schedule?.circuit ?? null;
+        moves.push({ board: slot.boardName, circuit, listPosition: slot.loadIndex + 1, name: slot.name, from: slot.present, to, circuitNumber: movedCircuitNumber(board, circuit, to, schedule?.poles) });
+        moveMap.set(slot.flat, to);
+      }
+    });
+    const moved = moveInstallationCircuits(tree, moveMap);
+    const solved = resolved.conditions.map((c, ci) => ({
+      before: solvedNow[ci]!,
+      after: solveAtBoards(installationInCondition(tree, moved, c.factors), c.name, tree, conditionWords(c, 'after the moves')),
+    }));
+    return { moves, moved, solved };
+  };
+  let { main, chosen, table } = searchAnswers();
+  let { moves, solved } = outcomeOf(chosen.best.choice);
+  // Where the re-solve puts a rating over that the fast model kept, that limit is tightened by as much and the search runs again.
+  for (let pass = 0; pass < RATING_PASSES && tightenRatedLimits(built, tree, ratingExcesses(ratingChanges(resolved.conditions, solved, tree))); pass++) {
+    ({ main, chosen, table } = searchAnswers());
+    ({ moves, solved } = outcomeOf(chosen.best.choice));
   }
-
   const choice = chosen.best.choice;
-  const moves: CircuitMove[] = [];
-  const moveMap = new Map<number, ConnectionSpec>();
-  built.slots.forEach((slot, i) => {
-    const to = slot.options[choice[i]!]!;
-    if (to !== slot.present) {
-      const board = tree.boards[tree.circuits[slot.flat]!.board]!;
-      const schedule = board.loads[slot.loadIndex]!.schedule;
-      const circuit = schedule?.circuit ?? null;
-      moves.push({ board: slot.boardName, circuit, listPosition: slot.loadIndex + 1, name: slot.name, from: slot.present, to, circuitNumber: movedCircuitNumber(board, circuit, to, schedule?.poles) });
-      moveMap.set(slot.flat, to);
-    }
-  });
-  const moved = moveInstallationCircuits(tree, moveMap);
   const beforeModel = figuresOf(built.layouts, p, homeChoice(p));
   const afterModel = figuresOf(built.layouts, p, choice);
-  const solved = resolved.conditions.map((c, ci) => ({
-    before: solvedNow[ci]!,
-    after: solveAtBoards(installationInCondition(tree, moved, c.factors), c.name, tree, conditionWords(c, 'after the moves')),
-  }));
   const conditions: ConditionComparison[] = built.layouts.map((l, k) => {
     const b = tree.names.indexOf(l.board);
     return {
