@@ -210,3 +210,19 @@ describe('a rating the re-solve puts over where the fast model kept it', () => {
     expect(r.stdout).not.toContain('These moves overload');
   });
 });
+
+describe('the text report where a rating is still over after the moves', () => {
+  it('the verdict names the proof as the fast model\'s and points at the first note; an over-now rating alone keeps it plain', async () => {
+    const { renderRebalanceReport } = await import('../../packages/cli/src/format/rebalanceReport.js');
+    const { report } = rebalanceText(pottery(36));
+    const flat = (text: string) => text.replace(/\s+/g, ' ');
+    expect(flat(renderRebalanceReport(report))).toContain("proven best within the file's ratings Work order");
+    const excess = { board: report.board.name, condition: 'as rated', conductor: 'line', line: 'C', winding: null, currentA: 37.2, capacityA: 36, overA: 1.2, limit: 'rating', nowA: 14.5 } as const;
+    const overAfter = { ...report, capacityExceeded: [{ ...excess, change: 'new' as const }] };
+    expect(flat(renderRebalanceReport(overAfter))).toContain(
+      "proven best within the file's ratings by the fast model, but the network re-solve puts a rating over (see the first note)",
+    );
+    const overNow = { ...report, capacityExceeded: [{ ...excess, nowA: 37.2, change: 'unchanged' as const }] };
+    expect(flat(renderRebalanceReport(overNow))).toContain("proven best within the file's ratings Work order");
+  });
+});
