@@ -67,8 +67,15 @@ function scoreDigits(xs: readonly number[]): number {
 }
 
 function verdict(r: RebalanceReport): string {
+  // Where the file rates conductors or supply units, the search kept them: the proof is over those answers.
+  // The fast model keeps the ratings; where the re-solve puts one over all the same, the proof is the model's only.
+  const overAfter = r.capacityExceeded.some((e) => e.limit === 'rating' && e.change !== 'unchanged');
   const proof = r.proven
-    ? 'proven best'
+    ? r.ratingsKept
+      ? overAfter
+        ? "proven best within the file's ratings by the fast model, but the network re-solve puts a rating over (see the first note)"
+        : "proven best within the file's ratings"
+      : 'proven best'
     : r.score.gapPercent !== null
       ? `best found; at most ${fixed(r.score.gapPercent, 2)} % (${score(r.score.gap ?? 0)}) above the best possible`
       : 'best found; no bound';

@@ -21,7 +21,8 @@ import type { Board, BoardLoad } from '../board/boardModel.js';
 import type { ConnectionSpec } from '../board/boardSchema.js';
 import { A_OPERATOR, A_SQUARED, abs, add, complex, conj, div, mul, polar, scale, sub, ZERO, type ComplexValue } from '../complex.js';
 import { fortescueComponents } from '../analysis/symmetricalComponents.js';
-import { MAX_OPTIONS, type AssignmentProblem } from './assignmentProblem.js';
+import { homeChoice, magnitudesOf, MAX_OPTIONS, sumQuantities, type AssignmentProblem } from './assignmentProblem.js';
+import { ratedCurrentLimits } from './ratedCurrentLimits.js';
 import { builtInMagnitudeScore, magnitudeScore, type ConditionLayout, type RebalanceObjective } from './rebalanceObjective.js';
 import { connectionChoices, type ResolvedRebalance } from './rebalanceRules.js';
 import { isUnder, loadOf, pathTo, type RebalanceTree } from './rebalanceTree.js';
@@ -51,6 +52,21 @@ export interface BuiltProblem {
    * just the current unbalance or just the voltage unbalance, in one condition); else null.
    */
   readonly singleQuantity: number | null;
+  /**
+   * The file's ratings as limits of the search (ratedCurrentLimits.ts): per quantity, the rated current in
+   * the fast model's terms (scaled by solvedNowA), and the limit set, which is that or, where the present
+   * wiring is over it, the present figure (a move set may not make an overload worse). Line and neutral
+   * currents at every rated board's incomer.
+   */
+  readonly rated: readonly {
+    readonly quantity: number;
+    readonly ratingA: number;
+    readonly limitA: number;
+    /** Condition and board number it is read in and at; the line (index into phases), or null for the neutral. */
+    readonly condition: number;
+    readonly board: number;
+    readonly line: number | null;
+  }[];
 }
 
 /** Balanced nominal phase voltages of the scoring model, in `board.phases` order. */
@@ -92,6 +108,19 @@ export function fixedLoadLineCurrents(board: Board, v: readonly ComplexValue[], 
   return out;
 }
 
+/**
+ * Fast-model current over network-solved current into board `p` at the present wiring (sums over its
+ * lines), to scale its ratings by; 1 without solved figures or current. Kept within 0.5–2: beyond, the
+ * fast model is no guide and the re-solve's check of the answer speaks (rebalanceInstallation.ts).
+ */
+function modelOverSolved(drawn: readonly (readonly ComplexValue[])[], p: number, solved: readonly number[] | undefined): number {
+  if (!solved) return 1;
+  const model = drawn[p]!.reduce((t, x) => t + abs(x), 0);
+  const actual = solved.reduce((t, a) => t + a, 0);
+  if (!(model > 0 && actual > 0)) return 1;
+  return Math.min(2, Math.max(0.5, model / actual));
+}
+
 interface QuantityRow {
   /** Coefficients on a board's line currents (phase order). */
   readonly weights: readonly ComplexValue[];
@@ -103,8 +132,17 @@ interface QuantityRow {
 
 /**
  * @param objective a caller's score; the built-in weighted score when absent.
+ * @param solvedNowA the network-solved line currents of the present wiring, A, [condition][board][line]: the
+ *   file's ratings are scaled by how far the fast model reads each board's incomer below (or above) them, so
+ *   a limit kept in the fast model is one the re-solve keeps (a board whose voltage sags draws more current
+ *   than the fast model's nominal voltage gives). Without it, the ratings are taken as they are.
  */
-export function buildAssignmentProblem(tree: RebalanceTree, study: ResolvedRebalance, objective?: RebalanceObjective): BuiltProblem {
+export function buildAssignmentProblem(
+  tree: RebalanceTree,
+  study: ResolvedRebalance,
+  objective?: RebalanceObjective,
+  solvedNowA?: readonly (readonly (readonly number[])[])[],
+): BuiltProblem {
   const board = tree.boards[0]!;
   const v = nominalPhaseVoltages(board);
   const lines = board.phases.length;
@@ -162,6 +200,8 @@ export function buildAssignmentProblem(tree: RebalanceTree, study: ResolvedRebal
 
   const rows: QuantityRow[] = [];
   const layouts: ConditionLayout[] = [];
+  /** The fast model's currents into each board at the present wiring, [condition][board][line]. */
+  const drawnByCondition: ComplexValue[][][] = [];
   const fixedLineA: number[][] = [];
   study.conditions.forEach((condition, c) => {
     // Every assignment draws the same positive-sequence current on each board; read it at the present wiring.
@@ -174,6 +214,7 @@ export function buildAssignmentProblem(tree: RebalanceTree, study: ResolvedRebal
       });
       return x;
     });
+    drawnByCondition.push(tree.boards.map((_, p) => board.phases.map((__, k) => drawn.reduce((t, x, b) => (isUnder(tree, b, p) ? add(t, x[k]!) : t), ZERO))));
     const sumUnder = (p: number, per: readonly ComplexValue[][]) =>
       board.phases.map((_, k) => per.reduce((t, x, b) => (isUnder(tree, b, p) ? add(t, x[k]!) : t), ZERO));
     const positiveInto = (p: number) =>
@@ -218,6 +259,27 @@ export function buildAssignmentProblem(tree: RebalanceTree, study: ResolvedRebal
     }
   });
 
+  // The file's ratings at every board's incomer, measured or not: rows of their own where the score reads none.
+  const ratedRows: { quantity: number; ratingA: number; condition: number; board: number; line: number | null }[] = [];
+  study.conditions.forEach((_, c) =>
+    tree.boards.forEach((b, p) => {
+      const rated = ratedCurrentLimits(b, p === 0);
+      if (rated.lineA.every((a) => a === Infinity) && rated.neutralA === Infinity) return;
+      const scale = modelOverSolved(drawnByCondition[c]!, p, solvedNowA?.[c]?.[p]);
+      const layout = layouts.find((l) => l.condition === c && l.board === tree.names[p]);
+      const perBoard = under(p);
+      rated.lineA.forEach((ratingA, k) => {
+        if (ratingA === Infinity) return;
+        const quantity = layout ? layout.lines[k]! : rows.push({ weights: unit[k]!, perBoard, condition: c, constant: ZERO }) - 1;
+        ratedRows.push({ quantity, ratingA: ratingA * scale, condition: c, board: p, line: k });
+      });
+      if (rated.neutralA !== Infinity) {
+        const quantity = layout && layout.neutral >= 0 ? layout.neutral : rows.push({ weights: ones, perBoard, condition: c, constant: ZERO }) - 1;
+        ratedRows.push({ quantity, ratingA: rated.neutralA * scale, condition: c, board: p, line: null });
+      }
+    }),
+  );
+
   const project = (row: QuantityRow, b: number, currents: readonly ComplexValue[]) =>
     mul(row.perBoard[b]!, row.weights.reduce((acc, w, k) => add(acc, mul(w, currents[k]!)), ZERO));
 
@@ -253,6 +315,12 @@ export function buildAssignmentProblem(tree: RebalanceTree, study: ResolvedRebal
     limits,
     score,
   };
+  // A rating the present wiring is already over limits the quantity to its present figure: not made worse.
+  const now = magnitudesOf(sumQuantities(problem, homeChoice(problem)), new Float64Array(q));
+  const rated = ratedRows.map((row) => {
+    limits[row.quantity] = Math.min(limits[row.quantity]!, Math.max(row.ratingA, now[row.quantity]!));
+    return { ...row, limitA: Math.max(row.ratingA, now[row.quantity]!) };
+  });
   let singleQuantity: number | null = null;
   const aimed = (Object.keys(study.aim) as (keyof typeof study.aim)[]).filter((k) => study.aim[k] > 0);
   if (!objective && layouts.length === 1 && aimed.length === 1) {
@@ -260,5 +328,5 @@ export function buildAssignmentProblem(tree: RebalanceTree, study: ResolvedRebal
     const index = { largestLine: -1, neutral: l.neutral, currentUnbalance: l.negative, voltageUnbalance: l.voltageNegative }[aimed[0]!];
     if (index >= 0) singleQuantity = index;
   }
-  return { problem, slots, layouts, fixedLineA, singleQuantity };
+  return { problem, slots, layouts, fixedLineA, singleQuantity, rated };
 }

@@ -38,6 +38,7 @@ import { searchExact } from './searchExact.js';
 import { greedyChoice, searchLocal, trimMoves } from './searchLocal.js';
 import { searchMeetInMiddle } from './searchMeetInMiddle.js';
 import { termBoundFor } from './termBounds.js';
+import { ratedReadings, type RatedReading } from './ratedCurrentLimits.js';
 import { installationInCondition, moveInstallationCircuits } from './applyMoves.js';
 import type { BoardVoltageComparison, CapacityExcess, CircuitMove, ConditionComparison, MoveTableRow, RebalanceReport } from './rebalanceResult.js';
 import { REBALANCE_NOTES, rebalanceCautions } from './rebalanceWording.js';
@@ -267,24 +268,139 @@ function checkCapacity(built: BuiltProblem, study: ResolvedRebalance, tie: numbe
 function capacityExcesses(built: BuiltProblem, study: ResolvedRebalance, choice: Int32Array, tie: number): CapacityExcess[] {
   const p = built.problem;
   const mags = magnitudesOf(sumQuantities(p, choice), new Float64Array(p.quantityCount));
+  const now = magnitudesOf(sumQuantities(p, homeChoice(p)), new Float64Array(p.quantityCount));
   const out: CapacityExcess[] = [];
   built.layouts.forEach((layout) =>
     layout.lines.forEach((j, k) => {
       const cap = study.lineCapacityA[k]!;
-      if (mags[j]! > cap + tie) out.push({ board: layout.board, condition: layout.name, line: ['A', 'B', 'C'][k] as 'A', currentA: mags[j]!, capacityA: cap, overA: mags[j]! - cap });
+      if (mags[j]! > cap + tie)
+        out.push({
+          board: layout.board,
+          condition: layout.name,
+          conductor: 'line',
+          line: ['A', 'B', 'C'][k] as 'A',
+          winding: null,
+          currentA: mags[j]!,
+          capacityA: cap,
+          overA: mags[j]! - cap,
+          limit: 'study',
+          nowA: now[j]!,
+          change: changeOf(now[j]!, mags[j]!, cap, tie),
+        });
     }),
   );
   return out.sort((a, b) => b.overA - a.overA);
 }
 
+/** Searches after the first that a rating the re-solve puts over may ask for (each tightens the limits it broke). */
+const RATING_PASSES = 3;
+
+/**
+ * Tightens the fast model's limit on each quantity whose rating the re-solve of an answer put over (or further
+ * over): by the ratio of the rating (or the present figure) to the re-solved one, a little more. A supply unit's
+ * or the transformer's rating limits the lines it carries. False when there was nothing to tighten.
+ */
+function tightenRatedLimits(built: BuiltProblem, tree: RebalanceTree, over: readonly CapacityExcess[]): boolean {
+  let tightened = false;
+  for (const e of over) {
+    if (e.change === 'unchanged' || !(e.currentA > 0)) continue;
+    const b = tree.names.indexOf(e.board);
+    const board = tree.boards[b]!;
+    // Every condition is read at each measured board, so a layout names its index.
+    const condition = built.layouts.find((l) => l.name === e.condition)!.condition;
+    const lines: (number | null)[] =
+      e.conductor === 'neutral'
+        ? [null]
+        : e.conductor === 'line'
+          ? [board.phases.indexOf(e.line!)]
+          : e.conductor === 'source-unit'
+            ? [board.phases.indexOf(board.sourceUnits!.find((u) => u.winding === e.winding)!.line)]
+            : board.phases.map((_, k) => k);
+    const ratio = ((e.change === 'new' ? e.capacityA : e.nowA) / e.currentA) * (1 - TIGHTEN_MARGIN);
+    for (const r of built.rated)
+      if (r.board === b && r.condition === condition && lines.includes(r.line)) {
+        built.problem.limits[r.quantity] = Math.min(built.problem.limits[r.quantity]!, built.problem.limits[r.quantity]! * ratio);
+        tightened = true;
+      }
+  }
+  return tightened;
+}
+
+/** Beyond the ratio, so the next answer is not one on the edge the re-solve tips over again. */
+const TIGHTEN_MARGIN = 0.002;
+
+/** The problem with the study's line capacities only: what the file's ratings cost, for a note. */
+function withoutRatings(built: BuiltProblem, study: ResolvedRebalance): AssignmentProblem {
+  const limits = new Float64Array(built.problem.quantityCount).fill(Infinity);
+  built.layouts.forEach((l) => l.lines.forEach((j, k) => (limits[j] = study.lineCapacityA[k]!)));
+  return { ...built.problem, limits };
+}
+
+/** Whether a figure over its capacity after the moves is the moves' doing. */
+function changeOf(nowA: number, afterA: number, capacityA: number, tie: number): CapacityExcess['change'] {
+  if (nowA <= capacityA + tie) return 'new';
+  return afterA > nowA + tie ? 'worse' : 'unchanged';
+}
+
+/** A rated item over its rating now or after the moves (network re-solve), as trivar solve judges it. */
+interface RatingChange {
+  readonly board: string;
+  readonly condition: string;
+  readonly reading: RatedReading;
+  readonly nowA: number;
+  readonly afterA: number;
+}
+
+/** Every rating the file gives, judged on the re-solved installation now and after the moves: those over on either side. */
+function ratingChanges(
+  conditions: readonly { readonly name: string }[],
+  solved: readonly { readonly before: { readonly results: readonly BoardResult[] }; readonly after: { readonly results: readonly BoardResult[] } }[],
+  tree: RebalanceTree,
+): RatingChange[] {
+  const key = (r: RatedReading) => `${r.conductor}:${r.at}`;
+  return conditions.flatMap((c, ci) =>
+    tree.boards.flatMap((board, b) => {
+      const after = new Map(ratedReadings(solved[ci]!.after.results[b]!, board).map((r) => [key(r), r]));
+      return ratedReadings(solved[ci]!.before.results[b]!, board).flatMap((now) => {
+        const then = after.get(key(now));
+        if (!then || (now.currentA <= now.ratingA && then.currentA <= then.ratingA)) return [];
+        return [{ board: tree.names[b]!, condition: c.name, reading: then, nowA: now.currentA, afterA: then.currentA }];
+      });
+    }),
+  );
+}
+
+/** The changes over their rating after the moves, as capacity excesses. */
+function ratingExcesses(changes: readonly RatingChange[]): CapacityExcess[] {
+  return changes
+    .filter((x) => x.afterA > x.reading.ratingA)
+    .map(({ board, condition, reading: r, nowA, afterA }) => ({
+      board,
+      condition,
+      conductor: r.conductor,
+      line: r.conductor === 'line' ? (r.at as 'A') : null,
+      winding: r.conductor === 'source-unit' ? r.at : null,
+      currentA: afterA,
+      capacityA: r.ratingA,
+      overA: afterA - r.ratingA,
+      limit: 'rating',
+      nowA,
+      // Compared as solve prints them (0.1 A): a hair's difference in the re-solve is not "worse".
+      change: changeOf(nowA, afterA, r.ratingA, PRINTED_AMPS / 2),
+    }));
+}
+
+/** The precision solve prints currents to, A. */
+const PRINTED_AMPS = 0.1;
+
 /** Solved figures at each board of the installation, in one condition, and each board's voltages against its own limits. */
-function solveAtBoards(installation: Installation, condition: string, tree: RebalanceTree, when: string): { figures: ConditionFigures[]; voltages: VoltageCheck[] } {
+function solveAtBoards(installation: Installation, condition: string, tree: RebalanceTree, when: string): { figures: ConditionFigures[]; voltages: VoltageCheck[]; results: BoardResult[] } {
   const solution = solveInstallationNetwork(installation);
   const results = solution.boards.map((b) => assertFiniteResult(analyseSolution(b)));
   // A work order for a supply that cannot carry its loads would rest on figures of a state that cannot exist.
   const collapsed = results.flatMap((r, k) => (r.operatingPoint.collapsed ? r.operatingPoint.findings.map((f) => `${tree.names.length > 1 ? `${tree.names[k]}, ` : ''}${when}: ${f}`) : []));
   if (collapsed.length) throw collapseError({ operatingPoint: { findings: collapsed } });
-  return { figures: results.map((r, k) => solvedFigures(condition, tree.names[k]!, r)), voltages: results.map((r) => r.voltageCheck) };
+  return { figures: results.map((r, k) => solvedFigures(condition, tree.names[k]!, r)), voltages: results.map((r) => r.voltageCheck), results };
 }
 
 /** Every board in every condition, judged against the board's own voltage limits now and after the moves. */
@@ -322,7 +438,10 @@ export function rebalanceInstallation(installation: Installation, study: unknown
   const o = resolveOptions(options);
   const tree = rebalanceTree(installation);
   const resolved = resolveRebalanceSpec(study, tree, { profile: options.profile, loadConditions: options.loadConditions });
-  const built = buildAssignmentProblem(tree, resolved, o.objective);
+  // The present wiring, network-solved first: the file's ratings are scaled by how far the fast model reads below it.
+  const conditionWords = (c: { name: string }, when: string) => (resolved.conditions.length > 1 ? `${c.name}, ${when}` : when);
+  const solvedNow = resolved.conditions.map((c) => solveAtBoards(installationInCondition(tree, installation, c.factors), c.name, tree, conditionWords(c, 'as it stands')));
+  const built = buildAssignmentProblem(tree, resolved, o.objective, solvedNow.map((x) => x.results.map((r) => r.phases.map((ph) => ph.current.magnitude))));
   const p = built.problem;
   const n = p.circuitCount;
   const forced = built.slots.filter((s) => !s.options.includes(s.present)).length;
@@ -337,73 +456,87 @@ export function rebalanceInstallation(installation: Installation, study: unknown
   checkCapacity(built, resolved, tie);
 
   const search: Search = { p, single: built.singleQuantity, termBound: o.objective ? null : termBoundFor(p, built.layouts, resolved.aim, resolved.combine) };
-  const main = answerWithin(search, limit, o, tie, []);
-  let chosen = main;
-  let table: MoveTableRow[] | null = null;
-  const wantTable = o.moveTable || resolved.nearBestPercent !== null;
-  if (wantTable) {
-    const rows: { moves: number; answer: Answer }[] = [];
-    const rowOf = (m: number, previous: Answer | null): Answer => {
-      const row: Answer = m === limit ? main : answerWithin(search, m, o, tie, previous ? [main.best, previous.best] : [main.best]);
-      // An answer with fewer moves is allowed with more: rows never get worse.
-      return previous && previous.best.score <= row.best.score - tie && previous.best.excess <= tie ? { ...row, best: previous.best } : row;
-    };
-    let previous: Answer | null = null;
-    for (const m of tableMoveCounts(forced, limit)) {
-      const row = rowOf(m, previous);
-      rows.push({ moves: m, answer: row });
-      previous = row;
-      if (row.best.excess <= tie && row.best.score <= main.best.score + tie && row.best.moves <= main.best.moves) break;
-    }
-    // A row's search can end better than the unlimited one (both are local searches): the answer given
-    // is then that row's, so the work order never scores worse than a line of the table beside it.
-    for (const { answer } of rows) {
-      const a = answer.best;
-      const c = chosen.best;
-      // Its bound is for its own (smaller) move limit: the answer keeps the whole limit's.
-      if (a.excess <= tie && (c.excess > tie || a.score < c.score - tie || (a.score <= c.score + tie && a.moves < c.moves)))
-        // Likewise whether branch-and-bound over the whole limit stopped at its budget.
-        chosen = { ...answer, lowerBound: main.lowerBound, proven: main.lowerBound !== null && main.lowerBound >= a.score - tie, budgetReached: main.budgetReached };
-    }
-    if (resolved.nearBestPercent !== null) {
-      const best = Math.min(main.best.score, ...rows.map((r) => r.answer.best.score));
-      const target = best * (1 + resolved.nearBestPercent / 100) + tie;
-      const near = (a: Answer) => a.best.score <= target && a.best.excess <= tie;
-      let at = rows.findIndex((r) => near(r.answer));
-      // Between two counts the table steps over, the fewest moves that come within the target, by bisection.
-      // Each probe goes into the table; `at` stays on the first row within the target.
-      while (at > 0 && rows[at]!.moves - rows[at - 1]!.moves > 1) {
-        const m = Math.floor((rows[at - 1]!.moves + rows[at]!.moves) / 2);
-        const row = rowOf(m, rows[at - 1]!.answer);
-        rows.splice(at, 0, { moves: m, answer: row });
-        if (!near(row)) at++;
+  /** The answer, its move table and the chosen row, searched over the problem's present limits. */
+  const searchAnswers = () => {
+    const main = answerWithin(search, limit, o, tie, []);
+    let chosen = main;
+    let table: MoveTableRow[] | null = null;
+    const wantTable = o.moveTable || resolved.nearBestPercent !== null;
+    if (wantTable) {
+      const rows: { moves: number; answer: Answer }[] = [];
+      const rowOf = (m: number, previous: Answer | null): Answer => {
+        const row: Answer = m === limit ? main : answerWithin(search, m, o, tie, previous ? [main.best, previous.best] : [main.best]);
+        // An answer with fewer moves is allowed with more: rows never get worse.
+        return previous && previous.best.score <= row.best.score - tie && previous.best.excess <= tie ? { ...row, best: previous.best } : row;
+      };
+      let previous: Answer | null = null;
+      for (const m of tableMoveCounts(forced, limit)) {
+        const row = rowOf(m, previous);
+        rows.push({ moves: m, answer: row });
+        previous = row;
+        if (row.best.excess <= tie && row.best.score <= main.best.score + tie && row.best.moves <= main.best.moves) break;
       }
-      const row = at >= 0 ? rows[at]! : null;
-      if (row && row.moves < limit) chosen = answerWithin(search, row.moves, o, tie, [main.best]);
+      // A row's search can end better than the unlimited one (both are local searches): the answer given
+      // is then that row's, so the work order never scores worse than a line of the table beside it.
+      for (const { answer } of rows) {
+        const a = answer.best;
+        const c = chosen.best;
+        // Its bound is for its own (smaller) move limit: the answer keeps the whole limit's.
+        if (a.excess <= tie && (c.excess > tie || a.score < c.score - tie || (a.score <= c.score + tie && a.moves < c.moves)))
+          // Likewise whether branch-and-bound over the whole limit stopped at its budget.
+          chosen = { ...answer, lowerBound: main.lowerBound, proven: main.lowerBound !== null && main.lowerBound >= a.score - tie, budgetReached: main.budgetReached };
+      }
+      if (resolved.nearBestPercent !== null) {
+        const best = Math.min(main.best.score, ...rows.map((r) => r.answer.best.score));
+        const target = best * (1 + resolved.nearBestPercent / 100) + tie;
+        const near = (a: Answer) => a.best.score <= target && a.best.excess <= tie;
+        let at = rows.findIndex((r) => near(r.answer));
+        // Between two counts the table steps over, the fewest moves that come within the target, by bisection.
+        // Each probe goes into the table; `at` stays on the first row within the target.
+        while (at > 0 && rows[at]!.moves - rows[at - 1]!.moves > 1) {
+          const m = Math.floor((rows[at - 1]!.moves + rows[at]!.moves) / 2);
+          const row = rowOf(m, rows[at - 1]!.answer);
+          rows.splice(at, 0, { moves: m, answer: row });
+          if (!near(row)) at++;
+        }
+        const row = at >= 0 ? rows[at]! : null;
+        if (row && row.moves < limit) chosen = answerWithin(search, row.moves, o, tie, [main.best]);
+      }
+      table = rows.map(({ moves, answer: a }) => ({ moves, score: a.best.score, lowerBound: a.lowerBound, proven: a.proven, movesUsed: a.best.moves, withinCapacity: a.best.excess <= tie }));
     }
-    table = rows.map(({ moves, answer: a }) => ({ moves, score: a.best.score, lowerBound: a.lowerBound, proven: a.proven, movesUsed: a.best.moves, withinCapacity: a.best.excess <= tie }));
+    return { main, chosen, table };
+  };
+  /** The work order of an answer and the installation re-solved with it. */
+  const outcomeOf = (choice: Int32Array) => {
+    const moves: CircuitMove[] = [];
+    const moveMap = new Map<number, ConnectionSpec>();
+    built.slots.forEach((slot, i) => {
+      const to = slot.options[choice[i]!]!;
+      if (to !== slot.present) {
+        const board = tree.boards[tree.circuits[slot.flat]!.board]!;
+        const schedule = board.loads[slot.loadIndex]!.schedule;
+        const circuit = schedule?.circuit ?? null;
+        moves.push({ board: slot.boardName, circuit, listPosition: slot.loadIndex + 1, name: slot.name, from: slot.present, to, circuitNumber: movedCircuitNumber(board, circuit, to, schedule?.poles) });
+        moveMap.set(slot.flat, to);
+      }
+    });
+    const moved = moveInstallationCircuits(tree, moveMap);
+    const solved = resolved.conditions.map((c, ci) => ({
+      before: solvedNow[ci]!,
+      after: solveAtBoards(installationInCondition(tree, moved, c.factors), c.name, tree, conditionWords(c, 'after the moves')),
+    }));
+    return { moves, moved, solved };
+  };
+  let { main, chosen, table } = searchAnswers();
+  let { moves, solved } = outcomeOf(chosen.best.choice);
+  // Where the re-solve puts a rating over that the fast model kept, that limit is tightened by as much and the search runs again.
+  for (let pass = 0; pass < RATING_PASSES && tightenRatedLimits(built, tree, ratingExcesses(ratingChanges(resolved.conditions, solved, tree))); pass++) {
+    ({ main, chosen, table } = searchAnswers());
+    ({ moves, solved } = outcomeOf(chosen.best.choice));
   }
-
   const choice = chosen.best.choice;
-  const moves: CircuitMove[] = [];
-  const moveMap = new Map<number, ConnectionSpec>();
-  built.slots.forEach((slot, i) => {
-    const to = slot.options[choice[i]!]!;
-    if (to !== slot.present) {
-      const board = tree.boards[tree.circuits[slot.flat]!.board]!;
-      const schedule = board.loads[slot.loadIndex]!.schedule;
-      const circuit = schedule?.circuit ?? null;
-      moves.push({ board: slot.boardName, circuit, listPosition: slot.loadIndex + 1, name: slot.name, from: slot.present, to, circuitNumber: movedCircuitNumber(board, circuit, to, schedule?.poles) });
-      moveMap.set(slot.flat, to);
-    }
-  });
-  const moved = moveInstallationCircuits(tree, moveMap);
   const beforeModel = figuresOf(built.layouts, p, homeChoice(p));
   const afterModel = figuresOf(built.layouts, p, choice);
-  const solved = resolved.conditions.map((c) => ({
-    before: solveAtBoards(installationInCondition(tree, installation, c.factors), c.name, tree, resolved.conditions.length > 1 ? `${c.name}, as it stands` : 'as it stands'),
-    after: solveAtBoards(installationInCondition(tree, moved, c.factors), c.name, tree, resolved.conditions.length > 1 ? `${c.name}, after the moves` : 'after the moves'),
-  }));
   const conditions: ConditionComparison[] = built.layouts.map((l, k) => {
     const b = tree.names.indexOf(l.board);
     return {
@@ -440,17 +573,21 @@ export function rebalanceInstallation(installation: Installation, study: unknown
   else if (moves.length === 0) {
     // No move within a limit below the circuit count may be the limit's doing: a search without it says.
     const free = limit < n ? answerWithin(search, n, { ...o, method: 'local-search' }, tie, [main.best]).best : null;
+    const unrated = built.rated.length ? answerWithin({ ...search, p: withoutRatings(built, resolved) }, limit, { ...o, method: 'local-search' }, tie, [main.best]).best : null;
     if (free && free.excess <= tie && free.score < home.score - tie) notes.push(REBALANCE_NOTES.limitKeepsWiring(limit, free.moves, home.score, free.score));
+    else if (unrated && unrated.excess <= tie && unrated.score < home.score - tie) notes.push(REBALANCE_NOTES.ratingsKeepWiring(unrated.moves, home.score, unrated.score));
     else notes.push(REBALANCE_NOTES.alreadyBest);
   }
   if (chosen.exactRan && !chosen.proven && chosen.budgetReached) notes.push(REBALANCE_NOTES.budgetReached(o.nodeBudget));
   if (chosen.lowerBound === null && chosen.best.excess <= tie && n > 0) notes.push(REBALANCE_NOTES.noBound);
   const excesses = chosen.best.excess > tie ? capacityExcesses(built, resolved, choice, tie) : [];
+  const ratings = ratingChanges(resolved.conditions, solved, tree);
+  const ratingOver = ratingExcesses(ratings);
   if (excesses.length) {
     const bounds = magnitudeBoundsWithMoveLimit(p, limit);
     const impossible = built.layouts.some((l) => l.lines.some((j, k) => bounds[j]! > resolved.lineCapacityA[k]! + tie));
     const several = tree.boards.length > 1;
-    notes.push(REBALANCE_NOTES.capacityNotMet(limit, impossible || (chosen.exactRan && chosen.proven), excesses.map((e) => REBALANCE_NOTES.excess({ ...e, line: label(e.line) }, several))));
+    notes.push(REBALANCE_NOTES.capacityNotMet(limit, impossible || (chosen.exactRan && chosen.proven), excesses.map((e) => REBALANCE_NOTES.excess({ ...e, line: label(e.line!) }, several))));
   }
   conditions.forEach(({ board, solved: { before: f } }) =>
     f.lineA.forEach((amps, k) => {
@@ -458,6 +595,28 @@ export function rebalanceInstallation(installation: Installation, study: unknown
       if (amps > cap + tie) notes.push(REBALANCE_NOTES.overCapacityNow(tree.boards.length > 1 ? board : null, label(tree.boards[0]!.phases[k]!), amps, cap, f.name));
     }),
   );
+  // The file's ratings, as trivar solve judges them on the re-solve: what the moves would overload first.
+  const severalBoards = tree.boards.length > 1;
+  const ratingWords = (x: RatingChange) => ({
+    what: REBALANCE_NOTES.ratedItem(x.reading, label),
+    board: severalBoards ? x.board : null,
+    condition: resolved.conditions.length > 1 ? x.condition : null,
+    nowA: x.nowA,
+    afterA: x.afterA,
+    ratingA: x.reading.ratingA,
+  });
+  const caused = ratingOver.filter((e) => e.change !== 'unchanged');
+  const causedKeys = new Set(caused.map((e) => `${e.board}|${e.condition}|${e.conductor}|${e.line ?? e.winding}`));
+  const keyOf = (x: RatingChange) => `${x.board}|${x.condition}|${x.reading.conductor}|${x.reading.at}`;
+  if (caused.length) notes.unshift(REBALANCE_NOTES.overRatingAfterMoves(ratings.filter((x) => causedKeys.has(keyOf(x))).map(ratingWords)));
+  // A line the study's own capacity (no higher than its rating) already notes as over now is not noted twice.
+  const notedNow = (x: RatingChange) => {
+    if (x.reading.conductor !== 'line' || !resolved.measuredBoards.includes(tree.names.indexOf(x.board))) return false;
+    const cap = resolved.lineCapacityA[tree.boards[0]!.phases.indexOf(x.reading.at as 'A')]!;
+    return cap <= x.reading.ratingA && x.nowA > cap;
+  };
+  const stays = ratings.filter((x) => x.nowA > x.reading.ratingA && !causedKeys.has(keyOf(x)) && !notedNow(x));
+  if (stays.length) notes.push(REBALANCE_NOTES.overRatingNow(stays.map(ratingWords), moves.length > 0));
   const voltages = voltageComparisons(resolved.conditions, solved, tree);
   const severalConditions = resolved.conditions.length > 1;
   for (const v of voltages)
@@ -501,7 +660,8 @@ export function rebalanceInstallation(installation: Installation, study: unknown
     conditions,
     otherBoards: unmeasured,
     voltages,
-    capacityExceeded: excesses,
+    capacityExceeded: [...excesses, ...ratingOver].sort((a, b) => b.overA - a.overA),
+    ratingsKept: built.rated.length > 0,
     moveTable: o.moveTable || resolved.nearBestPercent !== null ? table : null,
     nearBest: resolved.nearBestPercent !== null ? { percent: resolved.nearBestPercent, bestScore: main.best.score } : null,
     search: {

@@ -76,14 +76,32 @@ export interface BoardVoltageComparison {
   readonly after: VoltageCheck;
 }
 
-/** A line of the answer above its capacity (fast model), when no answer within the move limit keeps every line within. */
+/**
+ * Something above its capacity after the moves. Two sources: the study's own `lineCapacityA` (`limit: 'study'`,
+ * fast model: when no answer within the move limit keeps every line within it), and the ratings the file gives
+ * (`limit: 'rating'`, network re-solve of the moved installation, the figures `trivar solve` warns of: a line or
+ * neutral conductor's `ratingA`, the supply transformer, a rated unit of a bank or open delta).
+ */
 export interface CapacityExcess {
   readonly board: string;
   readonly condition: string;
-  readonly line: 'A' | 'B' | 'C';
+  /** What is over: a line (or the line a unit or the transformer carries), the neutral, the supply transformer, a rated supply unit. */
+  readonly conductor: 'line' | 'neutral' | 'transformer' | 'source-unit';
+  /** The line of a line conductor; null for the others (see `winding`). */
+  readonly line: 'A' | 'B' | 'C' | null;
+  /** A supply unit's winding (`C`, or `A-B` in an open delta); null otherwise. */
+  readonly winding: string | null;
   readonly currentA: number;
   readonly capacityA: number;
   readonly overA: number;
+  readonly limit: 'study' | 'rating';
+  /** The same figure as things stand, A (same model). */
+  readonly nowA: number;
+  /**
+   * `new`: within its capacity now, over it after the moves; `worse`: over now and more so after;
+   * `unchanged`: over now and no worse after (the moves do not cause it).
+   */
+  readonly change: 'new' | 'worse' | 'unchanged';
 }
 
 /** One board's neutral with harmonics (the harmonic study at the file's loads), now and after the moves. */
@@ -148,8 +166,17 @@ export interface RebalanceReport {
   readonly otherBoards: readonly UnmeasuredBoardComparison[];
   /** Every board's voltages against its own limits, now and after, per condition (conditions in order, boards main first). */
   readonly voltages: readonly BoardVoltageComparison[];
-  /** Lines over capacity in the answer, worst first; empty when every line is within. */
+  /**
+   * Everything over its capacity after the moves, worst first: lines over the study's `lineCapacityA`
+   * (fast model), and every conductor or supply unit over the file's rating in the re-solve (what
+   * `trivar solve` of the rewritten file warns of). Empty when everything is within.
+   */
   readonly capacityExceeded: readonly CapacityExcess[];
+  /**
+   * True when the file rates something (a conductor's `ratingA`, the transformer, a bank's units): the search
+   * then kept each rated current within its rating, or no higher than now where it is over now (fast model).
+   */
+  readonly ratingsKept: boolean;
   readonly moveTable: readonly MoveTableRow[] | null;
   /** Fewest-moves mode: the % asked for and the best score it was measured from. */
   readonly nearBest: { readonly percent: number; readonly bestScore: number } | null;

@@ -207,6 +207,20 @@ function capacityIssues(spec: RebalanceSpec, board: Board, capacity: number[], p
     .map((p) => inputIssue('not_applicable', `lineCapacityA.${p}`, `only lines ${board.phases.map(label).join(', ')} on a ${board.system} supply`, given[p]));
 }
 
+/** A board name as a reader sees it: spaces collapsed and trimmed, letter case ignored (as installationRules.ts compares them). */
+const foldName = (name: string) => name.trim().replace(/\s+/g, ' ').toLowerCase();
+
+/**
+ * The board whose name reads as the word `at` ("main" or "each"), where that makes the word mean two
+ * things; −1 where it does not. The main board itself called "main" is no clash: both readings are its incomer.
+ */
+function measureWordClash(tree: RebalanceTree, at: string): number {
+  if (at !== 'main' && at !== 'each') return -1;
+  const b = tree.names.findIndex((name) => foldName(name) === at);
+  if (b < 0 || (at === 'main' && b === 0) || (at === 'each' && tree.boards.length === 1)) return -1;
+  return b;
+}
+
 function boardIssues(spec: RebalanceSpec, tree: RebalanceTree, movable: boolean[], measured: number[]): InputIssue[] {
   const issues: InputIssue[] = [];
   const count = tree.boards.length;
@@ -218,7 +232,12 @@ function boardIssues(spec: RebalanceSpec, tree: RebalanceTree, movable: boolean[
     else movable[b] = true;
   });
   const at = spec.measureAt ?? 'each';
-  if (at === 'each') measured.push(...tree.boards.map((_, b) => b));
+  const clash = spec.measureAt === undefined ? -1 : measureWordClash(tree, at);
+  if (clash >= 0) {
+    const board = quoteText(tree.names[clash]!);
+    const instead = at === 'main' ? `the main board's own name, ${quoteText(tree.names[0]!)}, for the main incomer` : 'to leave it out for every incomer (the default)';
+    issues.push(inputIssue('ambiguous_board', 'measureAt', `${instead}: "${at}" is also the name of board ${board}, and could mean either; to score at that board, rename it`, at));
+  } else if (at === 'each') measured.push(...tree.boards.map((_, b) => b));
   else if (at === 'main') measured.push(0);
   else {
     const b = tree.names.indexOf(at);

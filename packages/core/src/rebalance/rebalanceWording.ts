@@ -6,6 +6,20 @@ import type { VoltageCheck } from '../analysis/voltageCheck.js';
 import { BANKS_IN_SERVICE_BASIS } from '../analysis/banksInServiceWords.js';
 import { groupDigits } from '../_internal/groupDigits.js';
 import { quoteText } from '../errors.js';
+import { unitWords } from '../analysis/sourceUnitsWords.js';
+import type { RatedReading } from './ratedCurrentLimits.js';
+
+/** A rated item over its rating, with where and when, and its figures now and after the moves. */
+interface RatingWords {
+  readonly what: string;
+  readonly board: string | null;
+  readonly condition: string | null;
+  readonly nowA: number;
+  readonly afterA: number;
+  readonly ratingA: number;
+}
+
+const whereWords = (x: RatingWords) => `${x.board ? ` at ${quoteText(x.board)}` : ''}${x.condition ? ` in ${quoteText(x.condition)}` : ''}`;
 
 const VERDICT_WORDS: Record<VoltageCheck['verdict'], string> = {
   within: 'within',
@@ -75,6 +89,11 @@ export const REBALANCE_NOTES = {
   },
   nothingToMove: 'No circuit on this board can move (three-phase, pinned, or the supply offers no other connection).',
   alreadyBest: 'The present wiring is already the best found: no moves.',
+  /** No move keeps the file's ratings, where moves without them would lower the score (fast model). */
+  ratingsKeepWiring: (moves: number, now: number, free: number) => {
+    const [nowWords, freeWords] = scoresWords(now, free);
+    return `The present wiring stays: every move set that lowers the score would put a rated conductor or supply unit over its rating, or further over, in some condition. Without the ratings, ${moves} move${moves === 1 ? '' : 's'} would take the score from ${nowWords} to ${freeWords} (fast model).`;
+  },
   /** No move within the limit, where more moves would lower the score (fast model). */
   limitKeepsWiring: (limit: number, moves: number, now: number, free: number) => {
     const [nowWords, freeWords] = scoresWords(now, free);
@@ -93,6 +112,29 @@ export const REBALANCE_NOTES = {
     `line ${e.line}${withBoard ? ` at ${quoteText(e.board)}` : ''} in ${quoteText(e.condition)} carries ${e.currentA.toFixed(1)} A, ${e.overA.toFixed(1)} A over its ${e.capacityA.toFixed(0)} A capacity`,
   overCapacityNow: (board: string | null, line: PhaseLabel, amps: number, capacity: number, condition: string) =>
     `The present wiring puts ${amps.toFixed(1)} A on line ${line}${board ? ` at ${quoteText(board)}` : ''} in ${quoteText(condition)}, above its ${capacity.toFixed(0)} A capacity.`,
+  /** A rated item in words: "line C", "the neutral", "the supply transformer", "the supply's unit on C-N". */
+  ratedItem: (r: RatedReading, label: (term: string) => string) =>
+    r.conductor === 'line'
+      ? `line ${label(r.at!)}`
+      : r.conductor === 'neutral'
+        ? 'the neutral'
+        : r.conductor === 'transformer'
+          ? "the supply transformer's most loaded line"
+          : `the supply's single-phase unit on ${unitWords(r.at!, label)}`,
+  /** Rated items the moves put over their rating (or further over) in the network re-solve. */
+  overRatingAfterMoves: (items: readonly RatingWords[]) =>
+    `! These moves overload what the file rates: ${items
+      .map((x) => `${x.what}${whereWords(x)} would carry ${x.afterA.toFixed(1)} A against its rating of ${x.ratingA.toFixed(1)} A (now ${x.nowA.toFixed(1)} A)`)
+      .join('; ')}. trivar solve of the rewritten file warns of it. The search kept the fast model within the ratings; the network re-solve differs here: do not make these moves as they stand (pin a circuit, or lower the move limit, and run again).`,
+  /** Rated items over their rating as things stand, which the moves do not make worse. */
+  overRatingNow: (items: readonly RatingWords[], moved: boolean) =>
+    `Over its rating as things stand: ${items
+      .map((x) => `${x.what}${whereWords(x)} carries ${x.nowA.toFixed(1)} A against its rating of ${x.ratingA.toFixed(1)} A${moved ? `, ${x.afterA.toFixed(1)} A after the moves${x.afterA <= x.ratingA ? ' (within it)' : ''}` : ''}`)
+      .join('; ')}. ${
+      !moved || items.some((x) => x.afterA > x.ratingA)
+        ? `${moved ? 'The search allowed no move set that makes it worse. ' : ''}Moving circuits has not brought it within: check the rating and the protection.`
+        : 'The moves bring it within.'
+    }`,
   /** A board outside its own voltage limits after the moves or now (`board` null on a one-board file, `condition` null with one condition). */
   voltagesOutside: (v: { limits: VoltageCheck['limits']; before: VoltageCheck; after: VoltageCheck }, board: string | null, condition: string | null, moved: boolean) => {
     const where = `${board ? ` at ${quoteText(board)}` : ''}${condition ? ` in ${quoteText(condition)}` : ''}`;

@@ -1,10 +1,12 @@
 /**
  * The board or installation file text with moved circuits on their new
- * connections. YAML keeps its comments, order and layout (the yaml library's
- * document model edits the one field in place); JSON input stays JSON. Pure:
- * the CLI does the writing.
+ * connections: each moved load's connection value is replaced where it stands in
+ * the text, so every other byte (comments, flow or block style, quoting, line
+ * breaks) stays as written and a diff shows the moves only. A value the text
+ * cannot be edited at (an alias) goes through the yaml library's document model;
+ * JSON input stays JSON. Pure: the CLI does the writing.
  */
-import { isMap, isSeq, parseDocument, type YAMLMap } from 'yaml';
+import { isMap, isScalar, isSeq, parseDocument, type YAMLMap } from 'yaml';
 import type { CircuitMove } from './rebalanceResult.js';
 import { readPhaseTerm, spellIn } from '../board/conventions/phaseNames.js';
 import { assertText } from '../board/modelGuards.js';
@@ -70,9 +72,55 @@ function yamlLoads(doc: ReturnType<typeof parseDocument>, m: Move, k: number) {
 
 const noLoads = () => new InputError([inputIssue('missing', 'text', 'a board or installation file with a loads list')], HEADING);
 
+/** One connection value to replace in the text: its span and what goes there. */
+interface TextEdit {
+  readonly start: number;
+  readonly end: number;
+  readonly text: string;
+}
+
+/**
+ * The edit that puts `written` where a connection value stands, quoted as the file quotes it; null where the
+ * value is not a plain or quoted scalar of the text (an alias, a block scalar): the document model writes it then.
+ */
+function scalarEdit(node: unknown, written: string): TextEdit | null {
+  if (!isScalar(node) || !node.range) return null;
+  const quote = node.type === 'QUOTE_DOUBLE' ? '"' : node.type === 'QUOTE_SINGLE' ? "'" : node.type === 'PLAIN' ? '' : null;
+  if (quote === null) return null;
+  return { start: node.range[0], end: node.range[1], text: `${quote}${written}${quote}` };
+}
+
+/** The loads each move names, checked against it, with the connection value's node. */
+function movedLoads(doc: ReturnType<typeof parseDocument>, moves: readonly Move[]) {
+  return moves.map((m, k) => {
+    const loads = yamlLoads(doc, m, k);
+    if (!isSeq(loads)) throw noLoads();
+    const load = loads.items[m.listPosition - 1];
+    if (!isMap(load) || load.get('name') !== m.name) throw mismatch(m, k, isMap(load) ? load.get('name') : undefined);
+    return load;
+  });
+}
+
+/**
+ * The text with each moved load's connection value replaced where it stands: every other byte (comments,
+ * flow or block style, quoting, line breaks) as the file has it. Null where one of them cannot be edited so.
+ */
+function editedInPlace(text: string, doc: ReturnType<typeof parseDocument>, moves: readonly Move[], targets: readonly string[]): string | null {
+  const edits: TextEdit[] = [];
+  for (const [k, load] of movedLoads(doc, moves).entries()) {
+    const node = load.get('connection', true);
+    const edit = scalarEdit(node, asWritten(isScalar(node) ? node.value : undefined, targets[k]!));
+    if (!edit) return null;
+    edits.push(edit);
+  }
+  // From the end of the text back, so each span's offsets hold while the ones after it change.
+  return edits.sort((a, b) => b.start - a.start).reduce((out, e) => `${out.slice(0, e.start)}${e.text}${out.slice(e.end)}`, text);
+}
+
 /**
  * @param text the board or installation file as read (YAML or JSON).
  * @param moves the work order of a rebalancing report.
+ * @returns the text with only the moved loads' connection values changed; everything else byte for byte.
  * @example
  * rewriteBoardText('loads:\n  - { name: Kettle, connection: A-N, kW: 2 }\n', [{ listPosition: 1, name: 'Kettle', to: 'B-N' }])
  * //=> 'loads:\n  - { name: Kettle, connection: B-N, kW: 2 }\n'
@@ -94,16 +142,15 @@ export function rewriteBoardText(text: string, moves: readonly Move[]): string {
       if (typeof load !== 'object' || load === null || load.name !== m.name) throw mismatch(m, k, typeof load === 'object' && load !== null ? load.name : undefined);
       load.connection = asWritten(load.connection, targets[k]!);
     });
-    return `${JSON.stringify(file, null, 2)}\n`;
+    // JSON is YAML too: its double-quoted strings are edited where they stand, the rest of the text kept.
+    const doc = parseDocument(text);
+    const kept = doc.errors.length === 0 ? editedInPlace(text, doc, moves, targets) : null;
+    return kept ?? `${JSON.stringify(file, null, 2)}\n`;
   }
   const doc = parseDocument(text);
-  moves.forEach((m, k) => {
-    const loads = yamlLoads(doc, m, k);
-    if (!isSeq(loads)) throw noLoads();
-    const load = loads.items[m.listPosition - 1];
-    if (!isMap(load) || load.get('name') !== m.name) throw mismatch(m, k, isMap(load) ? load.get('name') : undefined);
-    load.set('connection', asWritten(load.get('connection'), targets[k]!));
-  });
+  const kept = editedInPlace(text, doc, moves, targets);
+  if (kept !== null) return kept;
+  movedLoads(doc, moves).forEach((load, k) => load.set('connection', asWritten(load.get('connection'), targets[k]!)));
   return doc.toString();
 }
 
