@@ -49,8 +49,13 @@ export function resolveSolveOptions(options: SolveOptions = {}, argument = 'opti
     maxIterations: options.maxIterations ?? 100,
     lowVoltageThreshold: options.lowVoltageThreshold ?? 0.7,
   };
-  checkNumberArgument(resolved.tolerance, `${argument}.tolerance`, 'a number above 0 and below 0.1 (a fraction of the nominal voltage)', (x) => x > 0 && x < 0.1);
-  checkNumberArgument(resolved.maxIterations, `${argument}.maxIterations`, 'a whole number of iterations, at least 1', (x) => Number.isInteger(x) && x >= 1);
-  checkNumberArgument(resolved.lowVoltageThreshold, `${argument}.lowVoltageThreshold`, 'a number above 0 and at most 1 (per unit)', (x) => x > 0 && x <= 1);
+  // Checked inline first: a compiled network resolves its options on every solve of a sizing loop, and
+  // the path text and closures of the checks below are built only for the error.
+  const { tolerance, maxIterations, lowVoltageThreshold } = resolved;
+  if (typeof tolerance === 'number' && tolerance > 0 && tolerance < 0.1 && Number.isInteger(maxIterations) && maxIterations >= 1 && typeof lowVoltageThreshold === 'number' && lowVoltageThreshold > 0 && lowVoltageThreshold <= 1)
+    return resolved;
+  checkNumberArgument(tolerance, `${argument}.tolerance`, 'a number above 0 and below 0.1 (a fraction of the nominal voltage)', (x) => x > 0 && x < 0.1);
+  checkNumberArgument(maxIterations, `${argument}.maxIterations`, 'a whole number of iterations, at least 1', (x) => Number.isInteger(x) && x >= 1);
+  checkNumberArgument(lowVoltageThreshold, `${argument}.lowVoltageThreshold`, 'a number above 0 and at most 1 (per unit)', (x) => x > 0 && x <= 1);
   return resolved;
 }
