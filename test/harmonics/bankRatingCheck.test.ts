@@ -15,7 +15,7 @@ import {
   studyHarmonics,
   withBanksInService,
 } from '@trivar/core';
-import { BANK_RATING_BOUNDS, voltageAcrossCapacitors } from '../../packages/core/src/harmonics/bankRatingCheck.js';
+import { BANK_RATING_BOUNDS, voltageAcrossCapacitors } from '../../packages/core/src/board/bankRatingCheck.js';
 
 const supply = { system: 'three-phase-4wire', voltage: { lineToLine: 400 }, frequencyHz: 50, transformer: { kVA: 500, impedancePercent: 4.5, xOverR: 4 } };
 

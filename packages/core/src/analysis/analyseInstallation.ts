@@ -6,7 +6,7 @@ import { ratedKvarInService } from '../network/installationModel.js';
 import { analyseSolution } from './analyseSolution.js';
 import { bankOverLoadsWarning } from './boardWarnings.js';
 import { solveOptionsOf } from '../network/solveOptions.js';
-import { bankRatingWarningOn, boardNominalPair } from '../harmonics/bankRatingCheck.js';
+import { bankRatingWarningOn, boardNominalPair } from '../board/bankRatingCheck.js';
 import { studyOpenNeutral } from './studyOpenNeutral.js';
 import type { BoardResult } from './boardResult.js';
 import type { BankInService } from '../board/boardModel.js';

@@ -9,7 +9,7 @@ import { labellerOf, type PhaseNaming } from '../board/conventions/phaseNames.js
 import { conventionsOf } from '../board/conventions/boardConventions.js';
 import { ONE_SHOT_PARSE } from '../_internal/oneShotParse.js';
 import { assertBoardModel } from '../board/modelGuards.js';
-import { bankRatingIssue, boardNominalPair } from '../harmonics/bankRatingCheck.js';
+import { bankRatingIssue, boardNominalPair } from '../board/bankRatingCheck.js';
 
 type Obj = Record<string, unknown>;
 const isObj = (x: unknown): x is Obj => typeof x === 'object' && x !== null && !Array.isArray(x);

@@ -14,7 +14,7 @@ import { boardOfInstallation, withBoardLoads } from '../network/installationMode
 import { addInstalledBank, installedBankLayout } from './harmonicModel.js';
 import type { InstallationBankSpec } from './harmonicsSpec.js';
 import { assertInstallationModel } from '../board/modelGuards.js';
-import { bankRatingIssue, boardNominalPair } from './bankRatingCheck.js';
+import { bankRatingIssue, boardNominalPair } from '../board/bankRatingCheck.js';
 
 const boardNames = (installation: Installation) => [installation.main.name, ...installation.subBoards.map((sb) => sb.name)];
 

@@ -6,7 +6,7 @@ import { labellerOf, type PhaseNaming } from '../board/conventions/phaseNames.js
 import type { HarmonicLoadSpec } from './harmonicsSpec.js';
 import type { SupplySpec } from '../board/boardSchema.js';
 import { nominalVoltagesOf } from '../board/nominalVoltages.js';
-import { bankRatingIssue, type RatedBank } from './bankRatingCheck.js';
+import { bankRatingIssue, type RatedBank } from '../board/bankRatingCheck.js';
 
 /** What the rule reads: the supply and the loads with their harmonic fields. */
 type BoardWithHarmonicLoads = Pick<BoardBaseSpec, 'supply'> & { readonly loads: readonly HarmonicLoadSpec[] };

@@ -27,7 +27,7 @@ import { HARMONICS_DEFAULTS } from './harmonicsDefaults.js';
 import type { HarmonicsBoardSpec } from './harmonicsSpec.js';
 import { harmonicsCautions, harmonicsWarningText, harmonicsWording, neutralPractice } from './harmonicsWording.js';
 import { powerReading } from '../analysis/powerReading.js';
-import { bankRatingIssue, bankRatingWarningOn, boardNominalPair } from './bankRatingCheck.js';
+import { bankRatingIssue, bankRatingWarningOn, boardNominalPair } from '../board/bankRatingCheck.js';
 import type { CapacitorDuty, ContinuousVoltage, DistortionReading, DutyCase, DutyCondition, HarmonicLineReading, HarmonicsPowerFactor, HarmonicsReport, HarmonicsWarning, NeutralCheck, ResonanceScan, TddCheck, VoltageDistortionCheck } from './harmonicsResult.js';
 import { conventionsOf } from '../board/conventions/boardConventions.js';
 import { regionWords, type RegionWords } from '../board/conventions/regionWords.js';

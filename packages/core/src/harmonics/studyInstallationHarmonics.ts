@@ -48,7 +48,7 @@ import {
   type SwitchedOtherBanks,
 } from './studyHarmonics.js';
 import { checkObjectArgument } from '../_internal/argumentChecks.js';
-import { bankRatingWarningOn, boardNominalPair } from './bankRatingCheck.js';
+import { bankRatingWarningOn, boardNominalPair } from '../board/bankRatingCheck.js';
 
 /** What the study reads of an installation file: the installation, its loads' harmonic fields and the `harmonics:` section. */
 export type HarmonicsInstallationSpec = Omit<InstallationBaseSpec, 'boards'> & {

@@ -4,7 +4,7 @@
  * rating typed 28 for 280 makes a 30 kvar bank deliver 2000 kvar, and 40000 for 400 makes it deliver
  * nothing; both ran to a report with exit 0. The bounds are here, in one place, with their reasons.
  */
-import type { Board } from '../board/boardModel.js';
+import type { Board } from './boardModel.js';
 import { inputIssue, type InputIssue } from '../errors.js';
 
 /** Ratings judged as a multiple of the voltage across the capacitors (common practice, no source). */
