@@ -99,14 +99,38 @@ describe('a metered phase given in kW alone', () => {
     expect(facts).toContainEqual(['Columns read', result.columnNotes[0]]);
   });
 
-  it('on a sub-board: from the loads there, half of each line-to-line branch on the phase, the bank in service aside', () => {
+  it('on a sub-board: from the loads there, each line-to-line branch as the line carries it, the bank in service aside', () => {
     // The shipped joinery's finishing shop: spray booth fans 11 kW at 0.8 and drying heaters 12 kW at PF 1, both
-    // delta; line A carries half of the A-B and C-A branches of each, so P = (11 + 12)/3 kW, Q = 11/3 × 0.75 kvar.
+    // delta; line A carries its share of the A-B and C-A branches of each (the ∓30° turns cancel in a balanced
+    // delta), so P = (11 + 12)/3 kW, Q = 11/3 × 0.75 kvar.
     // Its bank (25 + 25 kvar, in service in the file) is solved at its rating beside the total, so it is not counted.
     const plan = planInstallationColumns(ferrybankInService, ['time', 'Finishing shop/phase A [kW]']);
     const rating = plan.targets[0]!.phaseRating!;
     expect(rating.pf).toBeCloseTo(23 / Math.hypot(23, 11 * 0.75), 12);
     expect(rating.loads).toEqual(['part of Finishing shop/Spray booth fans', 'part of Finishing shop/Drying room heaters']);
+  });
+
+  it("takes a line-to-line load's share as the line carries it (S/√3 turned by ∓30°), so the neutral is the line-to-neutral loads' alone", () => {
+    // Bakehouse: an oven pair of 20 kW at PF 1 on A-B and a 10 kW prover at PF 1 on C-N, each phase metered in kW.
+    const bakehouse = {
+      name: 'Bakehouse lane',
+      supply: SUPPLY,
+      loads: [
+        { name: 'Oven pair', connection: 'A-B', kW: 20, pf: 1 },
+        { name: 'Prover', connection: 'C-N', kW: 10, pf: 1 },
+      ],
+    };
+    const { result, plan } = profileOf(bakehouse, ['time', 'phase A [kW]', 'phase B [kW]', 'phase C [kW]'], [['2026-02-02T08:00Z', '10', '10', '10']]);
+    // By hand: line A carries S_AB/(√3∠30°) = 10 − j5.77 kVA (PF 0.866 leading), line B 10 + j5.77 (0.866 lagging), line C 10 kVA.
+    expect(plan.targets[0]!.phaseRating!.tanPhi).toBeCloseTo(-Math.tan(Math.PI / 6), 12);
+    expect(plan.targets[1]!.phaseRating!.tanPhi).toBeCloseTo(Math.tan(Math.PI / 6), 12);
+    expect(plan.targets[2]!.phaseRating!.tanPhi).toBeCloseTo(0, 12);
+    // Lines 20000/400 = 50 A on A and B, 10000/230.94 = 43.30 A on C; the neutral carries the prover alone, 43.30 A
+    // (half of each oven on each line at PF 1 gave three equal 43.3 A lines and 0 A in the neutral).
+    expect(peakOf(result, 'A')).toBeCloseTo(50, 2);
+    expect(peakOf(result, 'B')).toBeCloseTo(50, 2);
+    expect(peakOf(result, 'C')).toBeCloseTo(10_000 / V_PHASE, 2);
+    expect(peakOf(result, 'N')).toBeCloseTo(10_000 / V_PHASE, 2);
   });
 
   it('is taken at PF 1 where the file has no load drawing power on that phase, and says that too', () => {

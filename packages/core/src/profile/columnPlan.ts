@@ -11,6 +11,7 @@
 import { labellerOf, readPhaseTerm } from '../board/conventions/phaseNames.js';
 import { conventionsOf } from '../board/conventions/boardConventions.js';
 import type { Board, BoardLoad, PhaseId } from '../board/boardModel.js';
+import { balancedAnglesDeg } from '../board/normaliseBoard.js';
 import type { ComplexValue } from '../complex.js';
 import { InputError, inputIssue, type InputIssue, quoteText } from '../errors.js';
 import type { DriverColumns, DriverSpec } from './batchNetwork.js';
@@ -80,6 +81,14 @@ export interface TargetResolver {
   resolve(name: string, at: string, issues: InputIssue[]): { kind: ColumnTarget['kind']; loads: number[] } | null;
   /** The board a load (index into `loads`) is on, where there are several. @defaultValue one board */
   boardOf?(load: number): number;
+  /** Each phase's balanced nominal angle, degrees (an installation's boards share the main board's phases). */
+  readonly phaseAnglesDeg: Readonly<Partial<Record<PhaseId, number>>>;
+}
+
+/** The balanced nominal angle of each phase of a board, degrees: what a metered phase's share of a line-to-line load turns on. */
+export function phaseAnglesOf(board: Pick<Board, 'system' | 'sequence' | 'phases'>): Partial<Record<PhaseId, number>> {
+  const angles = balancedAnglesDeg(board.system, board.sequence);
+  return Object.fromEntries(board.phases.map((p, k) => [p, angles[k]!]));
 }
 
 /** A constant-power phase-to-neutral load standing for a metered phase total. */
@@ -107,6 +116,7 @@ function boardResolver(board: Board, groups: Readonly<Record<string, readonly st
   const label = labellerOf(conventionsOf(board).phaseNames);
   return {
     loads,
+    phaseAnglesDeg: phaseAnglesOf(board),
     resolve(name, at, issues) {
       const p = phaseTargetOf(name);
       if (p) {
@@ -267,14 +277,22 @@ function countedTwiceIssues(targets: readonly ColumnTarget[], loads: readonly Bo
 }
 
 /**
- * The rated power of the file's own loads on a metered load's phase (same board, banks in service aside): a branch from that phase
- * to the neutral whole, a line-to-line branch half (its power is drawn through two lines). A metered phase
- * given in kW alone is taken at this power factor: the loads there are what the meter sees, and PF 1 would
- * hide their reactive power from the currents, the power factor and the bank.
+ * The rated power of the file's own loads on a metered load's phase (same board, banks in service aside), as
+ * that line carries it at balanced nominal voltages, S_x = V_x·I*: a branch from the phase to the neutral
+ * whole, a line-to-line branch x–y its share S·V_x/(V_x − V_y) (on a three-phase board S/√3 turned by ∓30°,
+ * so a 20 kW oven at PF 1 on A-B is 10 − j5.77 kVA on line A and 10 + j5.77 on B; on a split-phase board
+ * exactly half). A metered phase given in kW alone is taken at this power factor: the loads there are what
+ * the meter sees, and PF 1 — or a line-to-line load's own PF on each line — would misplace their reactive
+ * power in the currents, the neutral, the power factor and the bank.
  */
 function phaseRatingOf(metered: number, ownLoads: number, loads: readonly BoardLoad[], resolver: TargetResolver, inService: ReadonlySet<number>): NonNullable<ColumnTarget['phaseRating']> {
   const phase = loads[metered]!.branches[0]!.from;
   const boardOf = (l: number) => resolver.boardOf?.(l) ?? 0;
+  // A terminal's balanced nominal voltage, per unit: the neutral (and a floating star point, balanced) at 0.
+  const unitVoltage = (t: string): ComplexValue => {
+    const deg = resolver.phaseAnglesDeg[t as PhaseId];
+    return deg === undefined ? { re: 0, im: 0 } : { re: Math.cos((deg * Math.PI) / 180), im: Math.sin((deg * Math.PI) / 180) };
+  };
   let p = 0;
   let q = 0;
   const names: string[] = [];
@@ -288,10 +306,21 @@ function phaseRatingOf(metered: number, ownLoads: number, loads: readonly BoardL
         whole = false;
         continue;
       }
-      const share = b.to === 'N' || b.from === 'N' ? 1 : 0.5;
-      whole &&= share === 1;
-      p += share * b.sNominal.re;
-      q += share * b.sNominal.im;
+      const toNeutral = b.to === 'N' || b.from === 'N';
+      whole &&= toNeutral;
+      // S_x = S·V_x/(V_from − V_to), with V_x = V_from for the from end and −V_to for the to end (its current is −I).
+      const vf = unitVoltage(b.from);
+      const vt = unitVoltage(b.to);
+      const dr = vf.re - vt.re;
+      const di = vf.im - vt.im;
+      const at = b.from === phase ? vf : { re: -vt.re, im: -vt.im };
+      const d2 = dr * dr + di * di;
+      if (!(d2 > 0)) continue;
+      // ratio = V_x / (V_from − V_to)
+      const rr = (at.re * dr + at.im * di) / d2;
+      const ri = (at.im * dr - at.re * di) / d2;
+      p += b.sNominal.re * rr - b.sNominal.im * ri;
+      q += b.sNominal.re * ri + b.sNominal.im * rr;
       on = true;
     }
     // A load across phases is in the total only for its part on this one (the rest of it is off or driven elsewhere).

@@ -17,7 +17,7 @@ import { labellerOf } from '../board/conventions/phaseNames.js';
 import { conventionsOf } from '../board/conventions/boardConventions.js';
 import { inputIssue, type InputIssue, quoteText } from '../errors.js';
 import { bankPartIndices } from '../analysis/banksInServiceWords.js';
-import { meteredPhaseLoad, phaseTargetOf, planTargets, type ColumnPlan, type ColumnPlanOptions, type TargetResolver } from './columnPlan.js';
+import { meteredPhaseLoad, phaseAnglesOf, phaseTargetOf, planTargets, type ColumnPlan, type ColumnPlanOptions, type TargetResolver } from './columnPlan.js';
 import { ownEntry } from '../_internal/ownEntry.js';
 import { assertInstallationModel } from '../board/modelGuards.js';
 
@@ -127,6 +127,7 @@ function installationResolver(installation: Installation, groups: Readonly<Recor
   return {
     loads,
     boardOf: (load) => boards[load]!,
+    phaseAnglesDeg: phaseAnglesOf(main),
     resolve(name, at, issues) {
       const metered = meteredAt(name);
       if (metered) {
