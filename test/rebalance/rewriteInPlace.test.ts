@@ -63,6 +63,25 @@ describe('rewriteBoardText keeps every byte but the moved values', () => {
     expect(rewriteBoardText(aliased, [{ listPosition: 1, name: 'Boat heaters', to: 'C-N' }])).toContain('{ name: Boat heaters, connection: C-N, kW: 6 }');
   });
 
+  it('an anchored value moves alone: the loads written through its alias keep their connection, in the file\'s naming', () => {
+    // A pottery in L1/L2/L3 naming: the wheel's connection is anchored, the kiln and the glaze mixer take it by alias.
+    const anchored = [
+      'loads:',
+      '  - { name: Wheel, connection: &first L1-N, kW: 9 }',
+      '  - { name: Kiln, connection: *first, kW: 9 }',
+      '  - { name: Glaze mixer, connection: *first, kW: 4, pf: 0.8 }',
+      '',
+    ].join('\n');
+    const out = rewriteBoardText(anchored, [
+      { listPosition: 1, name: 'Wheel', to: 'C-N' },
+      { listPosition: 2, name: 'Kiln', to: 'B-N' },
+    ]);
+    // Before: the wheel's move rewrote the anchor (the mixer moved with it), and the kiln's alias was written "B-N" in an L1/L2/L3 file.
+    expect(out).toContain('{ name: Wheel, connection: L3-N, kW: 9 }');
+    expect(out).toContain('{ name: Kiln, connection: L2-N, kW: 9 }');
+    expect(out).toContain('{ name: Glaze mixer, connection: L1-N, kW: 4, pf: 0.8 }');
+  });
+
   it('trivar rebalance --write: the diff touches the moved loads\' lines only', () => {
     const dir = mkdtempSync(join(tmpdir(), 'trivar-inplace-'));
     const input = join(dir, 'boathouse.yaml');

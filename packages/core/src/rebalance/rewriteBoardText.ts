@@ -6,7 +6,7 @@
  * cannot be edited at (an alias) goes through the yaml library's document model;
  * JSON input stays JSON. Pure: the CLI does the writing.
  */
-import { isMap, isScalar, isSeq, parseDocument, type YAMLMap } from 'yaml';
+import { isAlias, isMap, isScalar, isSeq, parseDocument, visit, type Scalar, type YAMLMap } from 'yaml';
 import type { CircuitMove } from './rebalanceResult.js';
 import { readPhaseTerm, spellIn } from '../board/conventions/phaseNames.js';
 import { assertText } from '../board/modelGuards.js';
@@ -84,7 +84,8 @@ interface TextEdit {
  * value is not a plain or quoted scalar of the text (an alias, a block scalar): the document model writes it then.
  */
 function scalarEdit(node: unknown, written: string): TextEdit | null {
-  if (!isScalar(node) || !node.range) return null;
+  // An anchored value is also every alias of it: edited where it stands, the loads written `*anchor` would move too.
+  if (!isScalar(node) || !node.range || node.anchor) return null;
   const quote = node.type === 'QUOTE_DOUBLE' ? '"' : node.type === 'QUOTE_SINGLE' ? "'" : node.type === 'PLAIN' ? '' : null;
   if (quote === null) return null;
   return { start: node.range[0], end: node.range[1], text: `${quote}${written}${quote}` };
@@ -115,6 +116,19 @@ function editedInPlace(text: string, doc: ReturnType<typeof parseDocument>, move
   }
   // From the end of the text back, so each span's offsets hold while the ones after it change.
   return edits.sort((a, b) => b.start - a.start).reduce((out, e) => `${out.slice(0, e.start)}${e.text}${out.slice(e.end)}`, text);
+}
+
+/** Every alias of `node`'s anchor replaced by a copy of its value, so the anchored value can change alone. */
+function keepForAliases(doc: ReturnType<typeof parseDocument>, node: Scalar): void {
+  const anchor = node.anchor;
+  visit(doc, {
+    Alias(_, alias) {
+      if (alias.source !== anchor) return undefined;
+      const copy = node.clone() as Scalar;
+      delete (copy as { anchor?: string }).anchor;
+      return copy;
+    },
+  });
 }
 
 /**
@@ -150,7 +164,14 @@ export function rewriteBoardText(text: string, moves: readonly Move[]): string {
   const doc = parseDocument(text);
   const kept = editedInPlace(text, doc, moves, targets);
   if (kept !== null) return kept;
-  movedLoads(doc, moves).forEach((load, k) => load.set('connection', asWritten(load.get('connection'), targets[k]!)));
+  movedLoads(doc, moves).forEach((load, k) => {
+    const node = load.get('connection', true);
+    // The value as the file means it (an alias read through to its anchor), for the naming the file writes.
+    const value = isAlias(node) ? node.resolve(doc) : node;
+    // A moved value other loads refer to by alias: they keep it, written out in full, and the moved load gets its own.
+    if (isScalar(node) && node.anchor) keepForAliases(doc, node);
+    load.set('connection', doc.createNode(asWritten(isScalar(value) ? value.value : undefined, targets[k]!)));
+  });
   return doc.toString();
 }
 
