@@ -344,6 +344,20 @@ describe('trivar report', () => {
     expect(runTrivar(['diagram', '-', '-o', join(dir, 'piped.svg')], before).code).toBe(0);
   });
 
+  it('refuses "-" as an output file name instead of writing a file called "-"', () => {
+    const dir = scratch();
+    for (const args of [
+      ['report', join(ROOT, 'examples/corner-bakery.yaml'), '-o', '-'],
+      ['diagram', join(ROOT, 'examples/corner-bakery.yaml'), '-o', '-'],
+      ['rebalance', join(ROOT, 'examples/corner-bakery.yaml'), '--write', '-'],
+    ]) {
+      const r = spawnSync(process.execPath, [join(ROOT, 'packages/cli/bin/trivar.js'), ...args], { cwd: dir, encoding: 'utf8' });
+      expect(r.status, args.join(' ')).toBe(2);
+      expect(r.stderr, args.join(' ')).toContain('refusing to write a file named "-"');
+      expect(existsSync(join(dir, '-')), args.join(' ')).toBe(false);
+    }
+  });
+
   it('never overwrites its input through a hard link, nor one output with another, nor crashes on a bad output place', () => {
     const dir = scratch();
     const board = join(dir, 'board.yaml');

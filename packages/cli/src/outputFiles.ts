@@ -57,6 +57,7 @@ export function sameFile(a: string, b: string): boolean {
  */
 export function assertNotInput(outputs: readonly string[], inputs: readonly string[]): void {
   outputs.forEach((out, k) => {
+    if (out === '-') throw standardOutputAsFile();
     const input = inputs.find((i) => sameFile(out, i));
     if (input !== undefined)
       throw new UsageError(`refusing to write "${out}": it is an input file of this command${input === '-' ? ' (read from standard input)' : ''}; choose another output name`);
@@ -65,7 +66,15 @@ export function assertNotInput(outputs: readonly string[], inputs: readonly stri
   });
 }
 
+/**
+ * "-" given where a file is written: it means standard input as an input, but written as a path it made a file
+ * named "-" in the current folder (over one there) while the user looked for the output on the terminal.
+ */
+const standardOutputAsFile = () =>
+  new UsageError('refusing to write a file named "-": name a file to write; the commands that print their output leave the option out for standard output (e.g. trivar diagram board.yaml > out.svg)');
+
 export function writeOutputFile(path: string, content: string): void {
+  if (path === '-') throw standardOutputAsFile();
   try {
     writeFileSync(path, content, 'utf8');
   } catch (e) {
@@ -79,6 +88,7 @@ export function writeOutputFile(path: string, content: string): void {
 
 /** Creates the folder a command writes several files into (and its parents), with a clear error where it cannot. */
 export function makeOutputFolder(path: string): void {
+  if (path === '-') throw standardOutputAsFile();
   try {
     mkdirSync(path, { recursive: true });
   } catch (e) {
