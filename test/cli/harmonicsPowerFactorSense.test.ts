@@ -19,6 +19,32 @@ const laundry = (stepsKvar: number[]) => ({
   harmonics: { bank: { connection: 'delta', ratedV: 440, stepsKvar } },
 });
 
+describe("a board whose lines lag and lead at once", () => {
+  it('gives the board no sense: its arithmetic PF falls short of 1 by the lines\' opposing vars, not by ΣQ1', () => {
+    // Invented: a pottery yard whose star bank, every step on, leaves line C leading while A and B still lag.
+    const yard = {
+      name: 'Kiln yard sheds',
+      supply: { system: 'three-phase-4wire', voltage: { lineToLine: 400 }, frequencyHz: 50, transformer: { kVA: 200, impedancePercent: 4.5, xOverR: 3 } },
+      loads: [
+        { name: 'Pug mill', connection: 'ABC-delta', kW: 22, pf: 0.74, spectrum: 'six-pulse-drive' },
+        { name: 'Glaze mixer', connection: 'A-N', kW: 4, pf: 0.7 },
+        { name: 'Blower', connection: 'B-N', kW: 3, pf: 0.75 },
+        { name: 'Lights', connection: 'C-N', kW: 2, pf: 0.95, spectrum: 'led-driver' },
+      ],
+      harmonics: { bank: { connection: 'star', ratedV: 250, detuningPercent: 7, stepsKvar: [10, 10, 10] } },
+    };
+    const r = studyHarmonics(yard);
+    const senses = r.lines.map((l) => l.displacementSense);
+    expect(senses).toContain('lagging');
+    expect(senses).toContain('leading');
+    // ΣQ1 is a few tens of var against 31 kW: printed as 0.0 kvar, so neither a sense nor "sends … back" is data.
+    expect(Math.abs(r.powerFactor.fundamentalKvar)).toBeLessThan(0.05);
+    expect(r.powerFactor.displacementSense).toBe('none');
+    expect(r.powerFactor.displacement!).toBeLessThan(0.995);
+    expect(r.warnings.map((w) => w.message).join(' ')).not.toMatch(/sends 0\.0 kvar/);
+  });
+});
+
 describe('displacement PF sense in the harmonic study', () => {
   // Hand figures at 400 V: dryers 30 × tan(acos 0.85) = 18.59 kvar, 6.20 per line; pressing 6 × 0.75 = 4.50 kvar on A;
   // tills 2 × tan(acos 0.95) = 0.66 kvar on B; the bank 50 × (400/440)² = 41.32 kvar, 13.77 per line.

@@ -53,7 +53,10 @@ export interface HarmonicLineReading {
 export interface HarmonicsPowerFactor {
   readonly true: number | null;
   readonly displacement: number | null;
-  /** Of ΣQ1 over the lines: leading where the board as a whole sends capacitive kvar back up its supply. */
+  /**
+   * Of ΣQ1 over the lines: leading where the board as a whole sends capacitive kvar back up its supply; 'none'
+   * where some lines lag and others lead, as the arithmetic figure's shortfall from 1 is then theirs, not the board's.
+   */
   readonly displacementSense: PowerFactorSense;
   readonly fundamentalKW: number;
   readonly fundamentalKvar: number;

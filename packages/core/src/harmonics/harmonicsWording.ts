@@ -107,7 +107,7 @@ export const harmonicsWarningText = {
   /** `lines`: each leading line with its displacement PF, `L2 0.894`; `boardKvar` the board's ΣQ1, − where it sends kvar back. */
   leadingState: (state: string, lines: readonly string[], bankKvar: number, boardKvar: number) =>
     `with ${state} the bank (${bankKvar.toFixed(1)} kvar at nominal voltage) over-corrects: line${lines.length > 1 ? 's' : ''} ${lines.join(', ')} lead at the fundamental${
-      boardKvar < 0 ? `, and the board sends ${(-boardKvar).toFixed(1)} kvar capacitive back up its supply` : ''
+      boardKvar <= -0.05 ? `, and the board sends ${(-boardKvar).toFixed(1)} kvar capacitive back up its supply` : ''
     }. A leading board raises its own voltage and pushes capacitive current up its feeder; a controller would hold steps out at these loads, so the state studied here is the bank's largest, not its usual running state`,
   idealSource: 'the supply has no impedance in the board file: harmonic currents make no voltage distortion and no bank can resonate with it — give supply.transformer or supply.impedance for a real answer',
   noBank: 'no bank in harmonics.bank: the scan shows the board as it is',

@@ -429,6 +429,15 @@ export function analyseHarmonics(board: Board, model: HarmonicModel, options: Ha
   };
 }
 
+/**
+ * Some lines lag and others lead at the fundamental (each by more than it prints as, 0.01 kvar): the board's
+ * arithmetic PF then falls short of 1 by their opposing vars, and ΣQ1's sign — a few watts' worth either way — is
+ * no sense to print beside it (a board at 0.991 read "lead" on −0.024 kvar of 31 kW).
+ */
+function linesDisagree(lines: readonly HarmonicLineReading[]): boolean {
+  return lines.some((l) => l.fundamentalKvar >= 0.005) && lines.some((l) => l.fundamentalKvar <= -0.005);
+}
+
 /** Board figures, arithmetic over the lines: ΣP / Σ(V·I) with every order, and at the fundamental alone; the sense that of ΣQ1. */
 export function boardPowerFactor(orders: readonly OrderSolution[], lines: readonly HarmonicLineReading[]): HarmonicsReport['powerFactor'] {
   const watts = lines.reduce((s, l) => s + l.kW * 1000, 0);
@@ -439,7 +448,7 @@ export function boardPowerFactor(orders: readonly OrderSolution[], lines: readon
   return {
     true: apparent > 0 ? watts / apparent : null,
     displacement: apparent1 > 0 ? fundamentalLines.reduce((s, l) => s + l.kW * 1000, 0) / apparent1 : null,
-    displacementSense: apparent1 > 0 ? fundamental.sense : 'none',
+    displacementSense: apparent1 > 0 && !linesDisagree(lines) ? fundamental.sense : 'none',
     fundamentalKW: fundamental.kW,
     fundamentalKvar: fundamental.kvar,
   };
