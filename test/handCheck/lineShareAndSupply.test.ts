@@ -175,3 +175,29 @@ describe('the supply drop is booked under the board voltage, whatever the source
     expectEffectsAddUp(onDelta);
   });
 });
+
+describe('on an ideal source with no feeder', () => {
+  // Invented bench board: a 10 kW press at PF 0.8 on A, ovens of 10 kW at PF 1 on B and C, 12 kvar across A-B.
+  const bench = board({
+    name: 'Bench board',
+    supply: { system: 'three-phase-4wire', voltage: { lineToLine: 400 }, frequencyHz: 50 },
+    loads: [
+      { name: 'Press', connection: 'A-N', kW: 10, pf: 0.8 },
+      { name: 'Oven', connection: 'B-N', kW: 10, pf: 1 },
+      { name: 'Heater', connection: 'C-N', kW: 10, pf: 1 },
+    ],
+  });
+  const r = checkHandFigures(bench, { capacitors: [{ branch: 'A-B', kvar: 12 }] });
+  const said = (id: string) => r.effects.find((e) => e.effect === id)!.explanation;
+
+  it('says the neutral drops nothing, not that it makes the phase voltages unequal', () => {
+    expect(r.neutralA!.solved).toBeGreaterThan(30);
+    expect(said('neutral-return')).toMatch(/with no impedance in its path it drops nothing: the neutral bar stays on/);
+    expect(said('neutral-return')).not.toMatch(/become unequal/);
+  });
+
+  it('says the capacitors give the kvar counted by hand, not "12.00 kvar, not the 12.00 kvar"', () => {
+    expect(said('capacitor-voltage')).toMatch(/your capacitors give the 12\.00 kvar counted by hand\./);
+    expectEffectsAddUp(r);
+  });
+});

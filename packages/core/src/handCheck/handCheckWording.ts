@@ -33,10 +33,17 @@ export const effectExplanation = {
    * @param stepNeutralA the neutral current at this step (loads at rated power, capacitors at their hand kvar), quoted beside it where it differs as printed
    */
   neutralReturn: (neutralA: number, stepNeutralA: number, shiftV: number, sourcePoint: string, splitPhase: boolean): string =>
-    `The neutral carries ${f(neutralA, 1)} A back to the source as solved${f(stepNeutralA, 1) === f(neutralA, 1) ? '' : ` (${f(stepNeutralA, 1)} A at this step, with the loads still at their rated power and the capacitors at their hand kvar)`} and its drop lifts the neutral bar ${f(shiftV, 2)} V off ${sourcePoint}, so the ${splitPhase ? 'line-to-neutral' : 'phase'} voltages become unequal.`,
+    `The neutral carries ${f(neutralA, 1)} A back to the source as solved${f(stepNeutralA, 1) === f(neutralA, 1) ? '' : ` (${f(stepNeutralA, 1)} A at this step, with the loads still at their rated power and the capacitors at their hand kvar)`}${
+      // A neutral with no impedance (an ideal source, no feeder) drops nothing: the bar stays on the source's point.
+      f(shiftV, 2) === '0.00'
+        ? `, but with no impedance in its path it drops nothing: the neutral bar stays on ${sourcePoint} and the ${splitPhase ? 'line-to-neutral' : 'phase'} voltages stay as the source gives them.`
+        : ` and its drop lifts the neutral bar ${f(shiftV, 2)} V off ${sourcePoint}, so the ${splitPhase ? 'line-to-neutral' : 'phase'} voltages become unequal.`
+    }`,
   noNeutral: 'This board has no neutral conductor, so there is no neutral return to account for.',
   capacitorVoltage: (appliedKvar: number, handKvar: number, ratedNote: string): string =>
-    `A capacitor's output goes with the square of its voltage (Q = ωCV²): at the solved voltages your capacitors give ${f(appliedKvar, 2)} kvar, not the ${f(handKvar, 2)} kvar counted by hand (${f((100 * (appliedKvar - handKvar)) / handKvar, 1)} %).${ratedNote}`,
+    f(appliedKvar, 2) === f(handKvar, 2)
+      ? `A capacitor's output goes with the square of its voltage (Q = ωCV²): at the solved voltages your capacitors give the ${f(handKvar, 2)} kvar counted by hand.${ratedNote}`
+      : `A capacitor's output goes with the square of its voltage (Q = ωCV²): at the solved voltages your capacitors give ${f(appliedKvar, 2)} kvar, not the ${f(handKvar, 2)} kvar counted by hand (${f((100 * (appliedKvar - handKvar)) / handKvar, 1)} %).${ratedNote}`,
   ratedNote: (branch: PhaseLabel, ratedV: number, nominalV: number): string =>
     ` The ${branch} unit is rated at ${f(ratedV, 0)} V: on ${f(nominalV, 0)} V it gives (${f(nominalV, 0)}/${f(ratedV, 0)})² = ${f((100 * nominalV * nominalV) / (ratedV * ratedV), 1)} % of its nameplate kvar.`,
   voltageDependentLoads: (solvedKW: number, solvedKvar: number, ratedKW: number, ratedKvar: number): string =>
