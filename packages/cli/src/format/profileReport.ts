@@ -126,9 +126,11 @@ export function bankLines(r: { readonly bank: ProfileResult['bank']; readonly be
   const set = b.settings;
   const sizing =
     b.source === 'profile'
-      ? `sized from the profile to hold the target in ${fixed((set.coverShare ?? 0) * 100, 0)} % of intervals: ${Object.entries(b.needKvar ?? {})
+      ? // The cover share is of the kvar need (its percentile), not of the intervals that end at the target: steps
+        // too large to close at a small need leave those short (the hours below the target are given further on).
+        `sized from the profile to cover the kvar the target needs in ${fixed((set.coverShare ?? 0) * 100, 0)} % of intervals: ${Object.entries(b.needKvar ?? {})
           .map(([c, v]) => `${fixed(v, 1)} kvar ${b.placeWords[c] ?? c}`)
-          .join(', ')} needed`
+          .join(', ')} at that percentile (a step closes only where the need left exceeds its threshold, so the hours below the target can be more)`
       : b.source === 'correction-study'
         ? b.design?.recommended
           ? `the ${b.design.words} trivar correct recommends for this board (the board file's correction section names no arrangement), as it designs it`

@@ -9,7 +9,7 @@ export const PROFILE_DEFAULTS = {
   demandWindowMinutes: 15,
   /** A usual tariff target; the correction study uses the same default. */
   targetPf: 0.95,
-  /** Size the bank to hold the target in 95 % of intervals: the last few per cent of peaks cost the most kvar. */
+  /** Size the bank to cover the kvar the target needs in 95 % of intervals (that percentile of the need): the last few per cent of peaks cost the most kvar. */
   coverShare: 0.95,
   /** Controllers commonly have 6, 8 or 12 outputs (METHODS §10, common practice). */
   stepCount: 6,
