@@ -118,7 +118,7 @@ describe('installation report with the harmonic study', () => {
     expect(scan.rows.at(-1)!.slice(3)).toEqual(['12.6, 12.7', '13']);
     expect(s.blocks.some((b) => b.kind === 'figure' && b.name === 'board-workshop-impedance-scan')).toBe(true);
     expect(facts(s).get('Duty verdict')).toBe(bank.capacitorDuty!.ok ? 'within limits in every state' : 'LIMIT EXCEEDED in at least one state');
-    expect(facts(s).get('Highest capacitor voltage (fundamental)')).toBe('402.8 V');
+    expect(facts(s).get('Highest capacitor voltage (fundamental, any state checked, every load off included)')).toBe('402.8 V');
     for (const id of ['board-main-switchboard', 'board-studios-ground', 'board-studios-upper'])
       expect(section(doc, `${id}-harmonics`).blocks.some((b) => b.kind === 'figure' || (b.kind === 'table' && /Resonance/.test(b.caption)))).toBe(false);
   });

@@ -170,8 +170,12 @@ export function dutyLines(d: CapacitorDuty, label: Label): string[] {
       `design = nominal capacitance, loads as given${d.conditions.some((c) => c.otherBanks) ? ', other banks on' : ''}; worst of every state at capacitance −${d.capacitanceTolerance.minusPercent} % / nominal / +${d.capacitanceTolerance.plusPercent} %, loads as given and all off${d.conditions.some((c) => c.otherBanks) ? ', other banks on, out of service and in any state the joint scan finds near a checked order' : ''}: ${d.worst.label}, ${conditionWords(d.worst.condition)}`,
     ),
     prose(
-      `highest fundamental voltage across a capacitor: ${fixed(d.highestCapacitorVoltageV, 1)} V (${fixed(d.highestCapacitorVoltageV / d.ratedV, 3)} × rated)${
-        d.continuousVoltage?.reached ? `; the units run at or above the ${fixed(d.continuousVoltage.limitPu, 2)} × rated they stand continuously (IEC 60831-1): see the warning` : ''
+      // Every state checked, every load off included; the continuous judgement (the warning) is of the states the
+      // bank can stay in, so where the two differ each figure says which it is.
+      `highest fundamental voltage across a capacitor in any state checked (every load off included): ${fixed(d.highestCapacitorVoltageV, 1)} V (${fixed(d.highestCapacitorVoltageV / d.ratedV, 3)} × rated)${
+        d.continuousVoltage?.reached
+          ? `; in the states the bank can stay in (loads as given) ${fixed(d.continuousVoltage.fundamentalPu * d.ratedV, 1)} V (${fixed(d.continuousVoltage.fundamentalPu, 3)} ×), at or above the ${fixed(d.continuousVoltage.limitPu, 2)} × rated they stand continuously (IEC 60831-1): see the warning`
+          : ''
       }`,
     ),
     prose(`limits: ${d.limitsSource}`),

@@ -205,7 +205,7 @@ export function dutyBlocks(d: CapacitorDuty, label: PhaseLabeller): ReportBlock[
       items: [
         ['Capacitor units', `rated ${fixed(d.ratedV, 0)} V; fundamental ${fixed(d.capacitorVoltageV, 1)} V across them${d.detuningPercent ? `; detuned ${fixed(d.detuningPercent, 1)} %` : ''}`],
         ['Worst state', `${w.label}, branch ${label(w.branch)}, ${conditionWords(w.condition)} (checked at capacitance −${d.capacitanceTolerance.minusPercent} %, nominal and +${d.capacitanceTolerance.plusPercent} %, loads as given and all off${d.conditions.some((c) => c.otherBanks) ? ', other banks on, out of service and in any state the joint scan finds near a checked order' : ''})`],
-        ['Highest capacitor voltage (fundamental)', `${fixed(d.highestCapacitorVoltageV, 1)} V`],
+        ['Highest capacitor voltage (fundamental, any state checked, every load off included)', `${fixed(d.highestCapacitorVoltageV, 1)} V`],
         ['V rms / V peak / I rms / kvar (per unit)', `${fixed(w.figures.voltageRms, 2)} / ${fixed(w.figures.voltagePeak, 2)} / ${fixed(w.figures.currentRms, 2)} / ${fixed(w.figures.kvar, 2)}`],
         [
           'Duty verdict',
