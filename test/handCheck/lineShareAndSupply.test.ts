@@ -201,3 +201,28 @@ describe('on an ideal source with no feeder', () => {
     expectEffectsAddUp(r);
   });
 });
+
+describe('a line the neutral shift lifts', () => {
+  // Invented forge: a 35 kW furnace on A and a 10 kW press at PF 0.8 (7.50 kvar) on B behind 150 m of feeder with
+  // a thin neutral; 7.45 kvar of capacitors on B-N by hand. The furnace's neutral current lifts B to about 241.5 V,
+  // where the capacitors give 7.45 × (241.5/230.94)² ≈ 8.15 kvar: more than the press draws, though less by hand.
+  const forge = board({
+    name: 'Forge lane',
+    supply: { system: 'three-phase-4wire', voltage: { lineToLine: 400 }, frequencyHz: 50 },
+    feeder: { line: { lengthM: 150, rOhmPerKm: 0.3, xOhmPerKm: 0.08 }, neutral: { lengthM: 150, rOhmPerKm: 1.2, xOhmPerKm: 0.08 } },
+    loads: [
+      { name: 'Furnace', connection: 'A-N', kW: 35, pf: 1 },
+      { name: 'Press', connection: 'B-N', kW: 10, pf: 0.8 },
+    ],
+  });
+  const r = checkHandFigures(forge, { capacitors: [{ branch: 'B-N', kvar: 7.45 }] });
+
+  it('calls it over-correction at the solved voltage, with both figures, not "more … 7.45 against 7.50"', () => {
+    const applied = r.capacitors[0]!;
+    expect(applied.appliedV).toBeGreaterThan(238);
+    expect(applied.kvarAtAppliedV).toBeCloseTo(7.45 * (applied.appliedV / (400 / Math.sqrt(3))) ** 2, 6);
+    const lead = r.warnings.find((w) => w.code === 'hand-line-leading')!;
+    expect(lead.message).toMatch(/counted by hand they give 7\.45 kvar against the 7\.50 kvar its loads draw, but at the voltage they see as solved they give 8\.\d\d kvar/);
+    expect(lead.message).not.toMatch(/line-pair/);
+  });
+});

@@ -154,7 +154,10 @@ const leadsMore = (after: number, before: number): boolean => +after.toFixed(3) 
 /** One line's reactive power as the textbook split counts it, kvar, and the line-pair branches on it. */
 interface LineBalance {
   readonly loadKvar: number;
+  /** By hand, at nominal voltage (the textbook split). */
   readonly capacitorKvar: number;
+  /** The same capacitors at the voltage each sees as solved, split alike. */
+  readonly solvedCapacitorKvar: number;
   readonly pairs: readonly PhaseLabel[];
 }
 
@@ -182,9 +185,13 @@ function leadingWarnings(
     const own = balance(p.phase);
     const overCorrected = own.capacitorKvar > own.loadKvar;
     const message = !leadsVisibly(b)
-      ? overCorrected || own.pairs.length === 0
-        ? handCheckWarningWords.leadingLine(label(p.phase), p.pf!, own.capacitorKvar, own.loadKvar)
-        : handCheckWarningWords.leadingLineShare(label(p.phase), p.pf!, own.capacitorKvar, own.loadKvar, own.pairs)
+      ? overCorrected
+        ? handCheckWarningWords.leadingLine(label(p.phase), p.pf!, own.capacitorKvar, own.loadKvar, own.pairs.length > 0, own.solvedCapacitorKvar)
+        : own.solvedCapacitorKvar > own.loadKvar
+          ? handCheckWarningWords.leadingLineVoltage(label(p.phase), p.pf!, own.solvedCapacitorKvar, own.capacitorKvar, own.loadKvar)
+          : own.pairs.length > 0
+            ? handCheckWarningWords.leadingLineShare(label(p.phase), p.pf!, own.capacitorKvar, own.loadKvar, own.pairs)
+            : handCheckWarningWords.leadingLineOther(label(p.phase), p.pf!, own.solvedCapacitorKvar, own.loadKvar)
       : leadsMore(p.pf!, b.pf!)
         ? handCheckWarningWords.leadingLineMore(label(p.phase), p.pf!, b.pf!)
         : handCheckWarningWords.leadingLineBefore(label(p.phase), p.pf!, b.pf!, acrossLines(p.phase));
@@ -296,7 +303,12 @@ export function checkHandFigures(board: Board, figures: unknown): HandCheckResul
       const tb = hand.phases.find((h) => h.phase === phase)!;
       const pairs = [...new Set([...pairLoads.map((b) => `${b.from}-${b.to}`), ...plans.filter((c) => c.to !== 'N').map((c) => c.spec.branch)])].filter((pair) => pair.split('-').includes(phase));
       // A split-phase 240 V branch is in line with both half-windings: no 30° shift to name there.
-      return { loadKvar: tb.kvarBefore, capacitorKvar: tb.capacitorKvar, pairs: board.system === 'split-phase' ? [] : pairs.map((pair) => labelsOf(board)(pair)) };
+      // The capacitors as solved, split as the textbook splits them: a line-to-neutral one whole, a line-pair one half.
+      const solvedCapacitorKvar = capacitors.reduce((sum, c) => {
+        const [from, to] = c.branch.split('-');
+        return sum + (to === 'N' ? (from === phase ? c.kvarAtAppliedV : 0) : from === phase || to === phase ? c.kvarAtAppliedV / 2 : 0);
+      }, 0);
+      return { loadKvar: tb.kvarBefore, capacitorKvar: tb.capacitorKvar, solvedCapacitorKvar, pairs: board.system === 'split-phase' ? [] : pairs.map((pair) => labelsOf(board)(pair)) };
     }),
     ...rActual.warnings,
   ];

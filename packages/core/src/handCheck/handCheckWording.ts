@@ -57,8 +57,19 @@ export const HAND_CHECK_METHOD =
 /** What the capacitors do to the board that a hand check must say, beside the figures. */
 export const handCheckWarningWords = {
   /** @param capacitorKvar, loadKvar the line's share by the textbook split (a line-pair branch half on each of its lines) */
-  leadingLine: (line: PhaseLabel, pf: number, capacitorKvar: number, loadKvar: number): string =>
-    `line ${line} leads at PF ${f(pf, 3)} with your capacitors in: they supply more reactive power than the loads on it draw (over-correction) — ${f(capacitorKvar, 2)} kvar against ${f(loadKvar, 2)} kvar, a line-pair branch counted half on each of its lines`,
+  leadingLine: (line: PhaseLabel, pf: number, capacitorKvar: number, loadKvar: number, linePairs: boolean, solvedKvar: number): string =>
+    `line ${line} leads at PF ${f(pf, 3)} with your capacitors in: they supply more reactive power than the loads on it draw (over-correction) — ${f(capacitorKvar, 2)} kvar against ${f(loadKvar, 2)} kvar${linePairs ? ', a line-pair branch counted half on each of its lines' : ''}${
+      f(solvedKvar, 2) === f(capacitorKvar, 2) ? '' : `; ${f(solvedKvar, 2)} kvar at the voltage they see as solved`
+    }`,
+  /**
+   * A line whose capacitors give less than its loads draw by hand, but more at the voltage they see as solved
+   * (a neutral shift or a supply above nominal lifts it): over-correction the hand figures do not show.
+   */
+  leadingLineVoltage: (line: PhaseLabel, pf: number, solvedKvar: number, handKvar: number, loadKvar: number): string =>
+    `line ${line} leads at PF ${f(pf, 3)} with your capacitors in: counted by hand they give ${f(handKvar, 2)} kvar against the ${f(loadKvar, 2)} kvar its loads draw, but at the voltage they see as solved they give ${f(solvedKvar, 2)} kvar (Q = ωCV²), more than the loads draw: over-correction the hand figures do not show`,
+  /** A line that leads although its capacitors give less than its loads draw, even as solved, and no line-pair branch is on it. */
+  leadingLineOther: (line: PhaseLabel, pf: number, solvedKvar: number, loadKvar: number): string =>
+    `line ${line} leads at PF ${f(pf, 3)} with your capacitors in, though they give it ${f(solvedKvar, 2)} kvar as solved against ${f(loadKvar, 2)} kvar its loads draw at rating: its loads draw less than their rating at the voltage they see`,
   /**
    * A line that leads although its capacitors give it less than its loads draw: the lead is the 30° shift of
    * the line-pair branches on it, not over-correction.
