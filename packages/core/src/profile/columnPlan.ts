@@ -12,7 +12,7 @@ import { labellerOf, readPhaseTerm } from '../board/conventions/phaseNames.js';
 import { conventionsOf } from '../board/conventions/boardConventions.js';
 import type { Board, BoardLoad, PhaseId } from '../board/boardModel.js';
 import { balancedAnglesDeg } from '../board/normaliseBoard.js';
-import type { ComplexValue } from '../complex.js';
+import { abs, degToRad, div, mul, neg, polar, sub, ZERO, type ComplexValue } from '../complex.js';
 import { InputError, inputIssue, type InputIssue, quoteText } from '../errors.js';
 import type { DriverColumns, DriverSpec } from './batchNetwork.js';
 import { ownEntry } from '../_internal/ownEntry.js';
@@ -291,7 +291,7 @@ function phaseRatingOf(metered: number, ownLoads: number, loads: readonly BoardL
   // A terminal's balanced nominal voltage, per unit: the neutral (and a floating star point, balanced) at 0.
   const unitVoltage = (t: string): ComplexValue => {
     const deg = resolver.phaseAnglesDeg[t as PhaseId];
-    return deg === undefined ? { re: 0, im: 0 } : { re: Math.cos((deg * Math.PI) / 180), im: Math.sin((deg * Math.PI) / 180) };
+    return deg === undefined ? ZERO : polar(1, degToRad(deg));
   };
   let p = 0;
   let q = 0;
@@ -311,16 +311,11 @@ function phaseRatingOf(metered: number, ownLoads: number, loads: readonly BoardL
       // S_x = S·V_x/(V_from − V_to), with V_x = V_from for the from end and −V_to for the to end (its current is −I).
       const vf = unitVoltage(b.from);
       const vt = unitVoltage(b.to);
-      const dr = vf.re - vt.re;
-      const di = vf.im - vt.im;
-      const at = b.from === phase ? vf : { re: -vt.re, im: -vt.im };
-      const d2 = dr * dr + di * di;
-      if (!(d2 > 0)) continue;
-      // ratio = V_x / (V_from − V_to)
-      const rr = (at.re * dr + at.im * di) / d2;
-      const ri = (at.im * dr - at.re * di) / d2;
-      p += b.sNominal.re * rr - b.sNominal.im * ri;
-      q += b.sNominal.re * ri + b.sNominal.im * rr;
+      const across = sub(vf, vt);
+      if (!(abs(across) > 0)) continue;
+      const share = mul(b.sNominal, div(b.from === phase ? vf : neg(vt), across));
+      p += share.re;
+      q += share.im;
       on = true;
     }
     // A load across phases is in the total only for its part on this one (the rest of it is off or driven elsewhere).
