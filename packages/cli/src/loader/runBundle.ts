@@ -13,6 +13,7 @@ import { readFileSync, statSync } from 'node:fs';
 import { createRequire } from 'node:module';
 import { dirname, join } from 'node:path';
 import { pathToFileURL } from 'node:url';
+import { setFlagsFromString } from 'node:v8';
 import { Script } from 'node:vm';
 import { cacheCommand, cacheDirectory, cacheFileName, readCache, writeCache } from './codeCache.js';
 
@@ -22,7 +23,10 @@ declare const TRIVAR_BUNDLE_HASH: string;
 /** What the bundle is called with: CommonJS's module parameters and its own URL (the parameters build.mjs's wrapper declares). */
 type BundleFunction = (exports: object, require: NodeJS.Require, module: { exports: object }, filename: string, dirname: string, bundleUrl: string) => void;
 
-// No V8 flags are set here. Tried 2026-12-03: v8.setFlagsFromString('--no-turbo-inlining') before the
+// No other V8 flags are set. Tried 2026-12-05, same method: a larger young generation (node
+// --min-semi-space-size=4 or 16, --semi-space-growth-factor=4; a 1,000-load solve 73 -> 80-88 ms) and
+// --no-parallel-scavenge, --no-concurrent-marking, --no-incremental-marking (no change beyond noise).
+// Tried 2026-12-03: v8.setFlagsFromString('--no-turbo-inlining') before the
 // bundle is compiled (the code cache is still accepted on the next run). Wall time, 25 interleaved runs
 // each, medians, own cache folder per variant, on 2 cores at a 1-min load average of 5.2-9.0 (so noisy):
 // correct corner-bakery 1290 -> 1012 ms, hillside 1402 -> 1190, riverside 976 -> 938, but harbour-cottages
@@ -36,6 +40,16 @@ type BundleFunction = (exports: object, require: NodeJS.Require, module: { expor
 // 142.7 ms here, 160.6 / 144.6 ms. A snapshot keeps no compiled code (every function is compiled again on
 // first call), while the code cache below hands V8 the bytecode of every function the command ran.
 // Built as CommonJS (build.mjs): __dirname is dist/.
+// V8 optimises a function once it has run through a budget of bytecode (--interrupt-budget, 66 KB in
+// Node 20). Most of a CLI run is spent once, in code that is still cold: optimising it early costs
+// compilations (on a second core shared with the garbage collector) and deoptimisations that a run of
+// 50-150 ms does not earn back. A budget 4.4 x larger, measured 2026-12-05 (15 interleaved runs, medians,
+// own cache folder per variant, bare node 20.5-22 ms): solve of a 1,000-load board 89.5 -> 72.6-78.3 ms,
+// correct corner-bakery 111.0 -> 99.7-104.2 ms, hillside-workshop 138.8 -> 122.7-125.1 ms. Budgets of
+// 200 k-1 M gave the same within noise; 30 k and 60 k were slower. Hot loops of long runs (a year of
+// interval data, a rebalance search) still reach optimised code, a few milliseconds later. Set before the
+// bundle is compiled, so the code cache (whose header records V8's flags) is made and read under it.
+setFlagsFromString('--interrupt-budget=300000');
 const bundlePath = join(__dirname, 'trivar-bundle.js');
 const bytes = readFileSync(bundlePath);
 const command = cacheCommand(process.argv.slice(2));
