@@ -29,6 +29,55 @@ describe('a current transformer given for the controller', () => {
   }, 60_000);
 });
 
+describe('where the CT goes, said alike in the text and the JSON', () => {
+  // An invented laundry: ironers on the intake board, a steam press on a sub-board; ideal 400 V source.
+  const dir = mkdtempSync(join(tmpdir(), 'trivar-ct-place-'));
+  const laundry = join(dir, 'laundry.yaml');
+  writeFileSync(
+    laundry,
+    [
+      'name: Fenwick Road laundry',
+      'supply: { system: three-phase-4wire, voltage: { lineToLine: 400 }, frequencyHz: 50 }',
+      'boards:',
+      '  - name: Intake board',
+      '    loads: [ { name: Ironers, connection: ABC-delta, kW: 40, pf: 0.9 } ]',
+      '  - name: Press room',
+      '    fedFrom: Intake board',
+      '    feeder: { lengthM: 5, line: { mm2: 95 }, neutral: { mm2: 95 } }',
+      '    loads: [ { name: Steam press, connection: ABC-delta, kW: 15, pf: 0.7 } ]',
+      '',
+    ].join('\n'),
+  );
+  type Controller = { ctPrimaryA: number; responseThresholdA: number; ctBasis: { placeWords: string; currentWords: string; point: string } };
+  const run = (extra: readonly string[]) => {
+    const args = ['correct', laundry, '--board', 'Press room', '--arrangement', 'delta-bank', ...extra];
+    const json = JSON.parse(runTrivar([...args, '--json']).stdout) as { report: { selection: { controller: Controller }; warnings: { code: string; message: string }[] } };
+    return { text: runTrivar(args).stdout.replace(/\s+/g, ' '), controller: json.report.selection.controller, warnings: json.report.warnings };
+  };
+  it('measured at the origin: 125/5 there (1.25 × 93.9 A before), C/k 0.358 A, the same place and figure in both', () => {
+    const { text, controller: c } = run(['--measured-at', 'origin']);
+    expect(c.ctPrimaryA).toBe(125);
+    expect(c.ctBasis.point).toBe('origin');
+    expect(c.ctBasis.currentWords).toMatch(/^93\.9 A, the largest line current there before correction \(\d+\.\d A after\)$/);
+    expect(text).toContain(`CT 125/5 A at ${c.ctBasis.placeWords}; chosen: the next standard rating at or above 1.25 × ${c.ctBasis.currentWords}; give controller.ctPrimaryA if yours differs`);
+    // 6198.3 / (√3 × 400) / 25 = 0.358 A, on the controller's line and in every step's row.
+    expect(text).toContain('C/k of the smallest step (6.20 kvar at nominal voltage) = 0.358 A; set 0.233 A');
+    // The press room's own figure would give 1.25 × 30.9 A → 40/5 and C/k 1.118 A: neither is printed.
+    expect(text).not.toContain('CT 40/5');
+    expect(text).not.toContain('1.118');
+  }, 60_000);
+  it('a CT given: marked as given, checked against the figure where it reads, and warned when below it', () => {
+    const { text, controller: c, warnings } = run(['--measured-at', 'origin', '--ct', '50']);
+    expect(text).toContain(`CT 50/5 A (given) at ${c.ctBasis.placeWords}; checked against ${c.ctBasis.currentWords}`);
+    expect(warnings.map((w) => w.code)).toContain('ct-below-line-current');
+    // 6198.3 / (√3 × 400) / 10 = 0.8946 A; × 0.65 = 0.5815 A.
+    expect(text).toContain('= 0.895 A; set 0.582 A');
+    const atBoard = run(['--ct', '50']);
+    expect(atBoard.text).toContain('CT 50/5 A (given) at the incomer of Press room, the board the equipment is on; checked against 30.9 A, the largest line current there before correction');
+    expect(atBoard.warnings.map((w) => w.code)).not.toContain('ct-below-line-current');
+  }, 60_000);
+});
+
 describe('units of another frequency', () => {
   const riverside = 'examples/riverside-cold-store.yaml';
   it('the no-unit message counts the frequency in what the nearest unit delivers, and the floor it names accepts it', () => {

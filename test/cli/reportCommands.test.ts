@@ -17,9 +17,9 @@ describe('trivar report', () => {
     const dir = mkdtempSync(join(tmpdir(), 'trivar-ctl-'));
     expect(runTrivar(['report', 'examples/riverside-cold-store.yaml', '--format', 'md', '-o', join(dir, 'r.md')]).code).toBe(0);
     const md = readFileSync(join(dir, 'r.md'), 'utf8');
-    const c = (JSON.parse(runTrivar(['correct', 'examples/riverside-cold-store.yaml', '--json']).stdout) as { selection: { controller: { ctPrimaryA: number; responseThresholdA: number; responseSettingA: number; outputsUsed: number; outputs: number; switchingDelayS: number } } }).selection.controller;
+    const c = (JSON.parse(runTrivar(['correct', 'examples/riverside-cold-store.yaml', '--json']).stdout) as { selection: { controller: { ctPrimaryA: number; ctBasis: { placeWords: string; currentWords: string }; responseThresholdA: number; responseSettingA: number; outputsUsed: number; outputs: number; switchingDelayS: number } } }).selection.controller;
     expect(md).toContain(`- **Controller outputs:** ${c.outputsUsed} of ${c.outputs} used`);
-    expect(md).toContain(`- **Current transformer:** ${c.ctPrimaryA}/5 A`);
+    expect(md).toContain(`- **Current transformer:** ${c.ctPrimaryA}/5 A at ${c.ctBasis.placeWords}; the next standard primary at or above 1.25 × ${c.ctBasis.currentWords}; use yours if it differs`);
     expect(md).toContain(`- **Response threshold (C/k):** ${c.responseThresholdA.toFixed(3)} A for the smallest step`);
     expect(md).toContain(`set ${c.responseSettingA.toFixed(3)} A (0.65 × C/k)`);
     expect(md).toContain(`- **Switching:** delay ${c.switchingDelayS} s`);

@@ -187,7 +187,9 @@ function controllerLines(c: ControllerSettings): string[] {
   const band = `PF ≥ ${boundFigure(c.targetBand.minPf)} lagging${c.targetBand.maxPf === null ? (c.targetBand.leadingAllowed ? ', leading allowed' : ' up to 1.000') : ` up to ${fixed(c.targetBand.maxPf, 3)} lagging`}`;
   return [
     `outputs: ${c.outputsUsed} of ${c.outputs} used · ${c.measurement === 'one-line' ? 'balanced steps: an ordinary controller reading one CT' : 'steps serve single lines: the controller must measure every line (one CT per line)'}`,
-    `CT ${ampsRating(c.ctPrimaryA)}/${ampsRating(c.ctSecondaryA)} A${c.ctChosen ? ' (chosen: next standard rating above 1.25 × the largest line current; give controller.ctPrimaryA if yours differs)' : ''}`,
+    `CT ${ampsRating(c.ctPrimaryA)}/${ampsRating(c.ctSecondaryA)} A${c.ctChosen ? '' : ' (given)'} at ${c.ctBasis.placeWords}; ${
+      c.ctChosen ? `chosen: the next standard rating at or above 1.25 × ${c.ctBasis.currentWords}; give controller.ctPrimaryA if yours differs` : `checked against ${c.ctBasis.currentWords}`
+    }`,
     `C/k of the smallest step (${fixed(c.smallestStepKvar, 2)} kvar at nominal voltage) = ${fixed(c.responseThresholdA, 3)} A${c.thresholdBasis === 'line-pair' ? LINE_PAIR_CK : ''}; set ${fixed(c.responseSettingA, 3)} A (${c.settingFraction} × C/k)`,
     `target band ${band} · switching delay ${c.switchingDelayS} s · a step waits ${c.reconnectionDelayS} s before it is switched on again (discharge time ${c.dischargeTimeS} s, ${c.dischargeRule})`,
   ];

@@ -24,8 +24,9 @@
  */
 import { CAPACITOR_DISCHARGE } from './capacitorDischarge.js';
 import { CORRECTION_DEFAULTS } from './correctionDefaults.js';
-import type { BankStep, ControllerSettings } from './correctionResult.js';
+import type { BankSelection, BankStep, ControllerSettings, CorrectionWarning, CtBasis, LineComparison } from './correctionResult.js';
 import type { ControllerSpec, Practice } from './correctionSpec.js';
+import { ctCurrentWords, ctPlaceWords, warningText } from './correctionWording.js';
 import { argumentIssueError, checkListArgument, checkNumberArgument, checkObjectArgument } from '../_internal/argumentChecks.js';
 
 /** IEC 61869-2 preferred CT primary ratings: 10, 12.5, 15, 20, 25, 30, 40, 50, 60, 75 A and their decimal multiples (from memory). */
@@ -70,8 +71,40 @@ export interface CurrentTransformer {
 }
 
 /**
+ * Where a controller's CT reads and the largest line current there. The CT must carry the larger of the
+ * before and after figures: a bank that takes a line past unity, or a delta branch that moves current
+ * between its lines, raises a line's current. Between the two ends the steps add a current that grows
+ * with each step, and |I_before + t·ΔI| is convex in t, so the ends bound every step state (the voltage
+ * moving with the steps aside).
+ */
+export interface CtReading {
+  readonly place: CtBasis['place'];
+  readonly point: string | null;
+  readonly lines: readonly Pick<LineComparison, 'currentA'>[];
+  readonly afterFrom: 'as-built' | 'as-sized';
+}
+
+/** The CT's basis: where it reads and the larger of the before and after currents there, or a current the caller gave. */
+export function ctBasisOf(reading: CtReading | { readonly givenA: number }): CtBasis {
+  if ('givenA' in reading)
+    return withWords({ place: 'board', point: null, largestLineCurrentA: null, afterFrom: null, sizedOn: 'given', currentA: reading.givenA });
+  const before = Math.max(0, ...reading.lines.map((l) => l.currentA.before));
+  const after = Math.max(0, ...reading.lines.map((l) => l.currentA.after));
+  return withWords({
+    place: reading.place,
+    point: reading.point,
+    largestLineCurrentA: { before, after },
+    afterFrom: reading.afterFrom,
+    sizedOn: after > before ? 'after' : 'before',
+    currentA: Math.max(before, after),
+  });
+}
+
+const withWords = (b: Omit<CtBasis, 'placeWords' | 'currentWords'>): CtBasis => ({ ...b, placeWords: ctPlaceWords(b.place, b.point), currentWords: ctCurrentWords(b) });
+
+/**
  * The CT the controller reads: as given, or the next standard primary at or
- * above 1.25 × the largest line current (common practice, no source).
+ * above 1.25 × the largest line current where it reads (common practice, no source).
  */
 export function resolveCurrentTransformer(spec: ControllerSpec, lineCurrentA: number): CurrentTransformer {
   return {
@@ -89,11 +122,13 @@ export interface ControllerInputs {
   readonly band: { readonly minPf: number; readonly maxPf: number | null; readonly leadingAllowed: boolean };
   /** True when a step serves one line only (trim steps, or separate lines of a split-phase board). */
   readonly perLine: boolean;
+  /** Where the CT reads and the current it is chosen on (ctBasisOf). */
+  readonly ctBasis: CtBasis;
 }
 
 /** Controller settings for the switched steps (C/k from the step with the smallest threshold), or null when the bank has none. */
 export function controllerSettings(input: ControllerInputs): ControllerSettings | null {
-  checkObjectArgument(input, 'input', "the controller's inputs { spec, practice, ct, steps, band }", ['spec', 'practice', 'ct', 'steps', 'band']);
+  checkObjectArgument(input, 'input', "the controller's inputs { spec, practice, ct, steps, band, ctBasis }", ['spec', 'practice', 'ct', 'steps', 'band', 'ctBasis']);
   checkListArgument(input.steps, 'input.steps', "the bank's steps (a selection's steps)", (x) => typeof x === 'object' && x !== null);
   const switched = input.steps.filter((s) => s.output !== null);
   if (!switched.length) return null;
@@ -109,6 +144,7 @@ export function controllerSettings(input: ControllerInputs): ControllerSettings 
     ctSecondaryA: secondaryA,
     ctRatio: primaryA / secondaryA,
     ctChosen: chosen,
+    ctBasis: input.ctBasis,
     smallestStepKvar: smallest.kvarAtNominalV,
     thresholdBasis: smallest.thresholdBasis,
     responseThresholdA: threshold,
@@ -119,5 +155,56 @@ export function controllerSettings(input: ControllerInputs): ControllerSettings 
     dischargeTimeS: discharge,
     dischargeRule: CAPACITOR_DISCHARGE[input.practice].rule,
     reconnectionDelayS: Math.max(discharge, input.spec.switchingDelayS ?? CORRECTION_DEFAULTS.switchingDelayS),
+  };
+}
+
+/**
+ * What the controller's CT is warned of: a primary below the current it must carry (a CT given; one
+ * chosen is at least 1.25 × it), and a C/k setting finer than controllers resolve.
+ */
+export function controllerWarnings(controller: ControllerSettings): CorrectionWarning[] {
+  const out: CorrectionWarning[] = [];
+  const { ctPrimaryA, ctBasis } = controller;
+  if (!controller.ctChosen && ctPrimaryA < ctBasis.currentA)
+    out.push({
+      code: 'ct-below-line-current',
+      message: warningText.ctBelowLineCurrent(ctPrimaryA, ctBasis, standardCtPrimaryA(CORRECTION_DEFAULTS.ctHeadroom * ctBasis.currentA)),
+      path: 'controller.ctPrimaryA',
+      value: ctPrimaryA,
+      threshold: ctBasis.currentA,
+    });
+  if (controller.responseSettingA < CORRECTION_DEFAULTS.ckResolutionA)
+    out.push({
+      code: 'ck-below-resolution',
+      message: warningText.ckBelowResolution(controller.responseSettingA, CORRECTION_DEFAULTS.ckResolutionA, controller.ctChosen),
+      path: 'controller.ctPrimaryA',
+      value: controller.responseSettingA,
+      threshold: CORRECTION_DEFAULTS.ckResolutionA,
+    });
+  return out;
+}
+
+/** The warnings `controllerWarnings` gives: a selection's are given again when its CT is. */
+const CT_WARNINGS: ReadonlySet<string> = new Set(['ct-below-line-current', 'ck-below-resolution']);
+
+/**
+ * A selection with its controller's CT chosen (where none was given) and checked where it reads, on the
+ * current there: every step's C/k on that CT (C/k ∝ 1/k_CT), the controller's settings and its CT
+ * warnings again. correctBoard calls it on the build it verified, whose after-correction currents (and
+ * the metering point's) the selection alone does not know.
+ */
+export function withCtReading(selection: BankSelection, reading: CtReading, spec: ControllerSpec): BankSelection {
+  const was = selection.controller;
+  if (!was) return selection;
+  const ctBasis = ctBasisOf(reading);
+  const ct = resolveCurrentTransformer(spec, ctBasis.currentA);
+  const scale = was.ctRatio / (ct.primaryA / ct.secondaryA);
+  const steps = selection.steps.map((s) => ({ ...s, responseThresholdA: s.responseThresholdA * scale }));
+  const controller = controllerSettings({ spec, practice: selection.practice, ct, steps, band: was.targetBand, perLine: was.measurement === 'every-line', ctBasis });
+  return {
+    ...selection,
+    steps,
+    controller,
+    warnings: [...selection.warnings.filter((w) => !CT_WARNINGS.has(w.code)), ...(controller ? controllerWarnings(controller) : [])],
   };
 }

@@ -18,7 +18,8 @@ import { sizeBalancingCompensator } from './sizeBalancingCompensator.js';
 import { defaultPractice, selectBankUnits } from './selectBankUnits.js';
 import { verifyCorrection, type VerifyCorrectionOptions } from './verifyCorrection.js';
 import { scaleBoardLoads } from './scaleBoardLoads.js';
-import type { BankSelection, BankSizing, BuildVerdict, CompensatorSizing, CorrectionReport, CorrectionStatus, CorrectionVerification, CorrectionWarning, FewerBranchesBuild, RoundingBesideReactors, SizedEquipment } from './correctionResult.js';
+import type { BankSelection, BankSizing, BuildVerdict, CompensatorSizing, CorrectionReport, CorrectionStatus, CorrectionVerification, CorrectionWarning, FewerBranchesBuild, LineComparison, RoundingBesideReactors, SizedEquipment } from './correctionResult.js';
+import { withCtReading, type CtReading } from './controllerSettings.js';
 import { arrangementNames, correctionCautions, exemptLeadingLines, exemptLeadingWords, infeasibleReason, lostNeutralCaution, lostNeutralUnequal, MODEL_CAUTION, meteringWarning, reportSummary, warningText } from './correctionWording.js';
 import { definedOnly } from './_internal/optionSchemas.js';
 import { assertViableBoard } from '../analysis/viableOperatingPoint.js';
@@ -299,7 +300,13 @@ export function correctBoard(board: Board, spec: unknown): CorrectionReport {
   }
   const { sized, selection, refit, recommended, verification } = chosen;
   const useRefit = refit !== null && refit.used;
-  const built = useRefit && selection ? selectionWithResizedReactors(selection, refit, verification.branches) : selection;
+  const asBuilt = useRefit && selection ? selectionWithResizedReactors(selection, refit, verification.branches) : selection;
+  // The controller's CT goes where it reads (where the target is measured, else the equipment's board) and
+  // carries the larger of the before and after currents there: chosen and checked on the build as verified.
+  const ctReading: CtReading = verification.metering
+    ? { place: 'metering-point', point: verification.metering.point, lines: verification.metering.lines, afterFrom: 'as-built' }
+    : { place: 'board', point: board.name, lines: verification.lines, afterFrom: 'as-built' };
+  const built = asBuilt && withCtReading(asBuilt, ctReading, parsed.controller ?? {});
   const resizedWords = (r: NonNullable<typeof refit>['reactors']) => r.map((x) => ({ ...x, branch: label(x.branch) }));
   const resizing = refit ? { reactors: refit.reactors, objectiveSized: refit.objectiveSized, objectiveResized: refit.objectiveResized, converged: refit.converged, used: useRefit, solves: refit.solves } : null;
   const idealVerification = sizing.arrangement === 'balancing-compensator' ? verifyCorrection(board, verifyOptions(sizing.ideal.equipment)) : null;
@@ -361,11 +368,11 @@ export function correctBoard(board: Board, spec: unknown): CorrectionReport {
     ...(lostNeutral.warning ? [lostNeutral.warning] : []),
     ...starPointWarnings(sizing, board),
     ...(sizing.arrangement === 'balancing-compensator' ? sizing.warnings : []),
-    ...(selection?.warnings ?? []).filter((w) => !settledByVerdict.has(w.code)),
+    ...(built?.warnings ?? []).filter((w) => !settledByVerdict.has(w.code)),
     ...(resizing?.used ? [{ code: 'reactors-resized', message: warningText.reactorsResized(resizedWords(resizing.reactors)), path: null, value: null, threshold: null }] : []),
     ...verification.warnings,
-    ...(verification.metering && selection?.controller
-      ? [{ code: 'controller-reads-elsewhere', message: meteringWarning(verification.metering.point, board.name), path: 'target.measuredAt', value: null, threshold: null }]
+    ...(verification.metering && built?.controller
+      ? [{ code: 'controller-reads-elsewhere', message: meteringWarning(verification.metering.point, board.name, built.controller.ctChosen, largestLineCurrents(verification.lines)), path: 'target.measuredAt', value: null, threshold: null }]
       : []),
   ];
   const delivered = selection?.deliveredKvar ?? 0;
@@ -401,6 +408,11 @@ export function correctBoard(board: Board, spec: unknown): CorrectionReport {
         ? [MODEL_CAUTION]
         : [...(lostNeutral.caution ? [lostNeutral.caution] : []), ...correctionCautions(regionWords(conventionsOf(board).region, board.system).groundWord)],
   };
+}
+
+/** The largest line current before and after, A. */
+function largestLineCurrents(lines: readonly LineComparison[]): { before: number; after: number } {
+  return { before: Math.max(0, ...lines.map((l) => l.currentA.before)), after: Math.max(0, ...lines.map((l) => l.currentA.after)) };
 }
 
 /** The lines held only to lead no more than before (they led before correction), for the verdict; '' when none. */

@@ -279,6 +279,30 @@ export interface BankStep {
   readonly onAtDesign: boolean;
 }
 
+/**
+ * Where the controller's CT goes and the current it must carry there: the largest line current at that
+ * point, before or after the equipment, whichever is larger (adding capacitors can raise a line's current:
+ * a line taken past unity, or a delta branch moving current between its lines).
+ */
+export interface CtBasis {
+  /** `board`: the incomer of the board the equipment is on; `metering-point`: where `target.measuredAt` puts the target. */
+  readonly place: 'board' | 'metering-point';
+  /** That board's name, or `origin`; null for a selection made on its own (selectBankUnits without a board). */
+  readonly point: string | null;
+  /** Largest line current there without and with the equipment, A; null where the caller gave the figure (`lineCurrentA`). */
+  readonly largestLineCurrentA: { readonly before: number; readonly after: number } | null;
+  /** What the `after` figure is of: the board re-solved with the units as built, or the continuous sizing. */
+  readonly afterFrom: 'as-built' | 'as-sized' | null;
+  /** Which figure the CT is chosen on and checked against: the larger of the two, or the one given. */
+  readonly sizedOn: 'before' | 'after' | 'given';
+  /** That figure, A. */
+  readonly currentA: number;
+  /** Where the CT goes, in words ("the origin of the installation (…), where the target is measured"). */
+  readonly placeWords: string;
+  /** The figure in words ("112.7 A, the largest line current there before correction (95.3 A after)"). */
+  readonly currentWords: string;
+}
+
 export interface ControllerSettings {
   /** Outputs of the controller, and how many the bank uses. */
   readonly outputs: number;
@@ -290,6 +314,8 @@ export interface ControllerSettings {
   readonly ctRatio: number;
   /** True when trivar chose the CT primary (none given). */
   readonly ctChosen: boolean;
+  /** Where the CT goes and the line current it is chosen on (or, given, checked against). */
+  readonly ctBasis: CtBasis;
   readonly smallestStepKvar: number;
   /** How the smallest step's C/k is read (BankStep.thresholdBasis). */
   readonly thresholdBasis: 'three-phase' | 'single-phase' | 'line-pair';

@@ -6,7 +6,7 @@ import type { PhaseLabel } from '../board/conventions/phaseNames.js';
 import type { PhaseId } from '../board/boardModel.js';
 import type { PowerFactorSense } from '../analysis/boardResult.js';
 import type { Arrangement, TargetDefinition } from './correctionSpec.js';
-import type { BuildVerdict, SmallBranch, SparedBranch, TargetName } from './correctionResult.js';
+import type { BuildVerdict, CtBasis, SmallBranch, SparedBranch, TargetName } from './correctionResult.js';
 import { argumentIssueError, checkListArgument, checkNumberArgument, checkObjectArgument, checkTextArgument, checkWordArgument } from '../_internal/argumentChecks.js';
 import { starWordOf, type StarWord } from '../board/conventions/regionWords.js';
 import { REGIONS, type Region } from '../board/conventions/region.js';
@@ -165,8 +165,13 @@ export const warningText = {
     `${capacitance === 'bank' ? 'the bank' : capacitance === 'board' ? "the board's own leading loads (capacitance already in service)" : "the bank with the board's own leading loads"} and the supply inductance resonate near harmonic order ${order.toFixed(1)}${near.length ? ` (within 10 % of the ${near.map(ordinal).join(' and the ')})` : ''}, estimated as √(X_C/X_path) from the supply path's reactance: with harmonic-producing loads on the board this needs a harmonic study and probably a detuned bank`,
   partialBalance: (negative: number, zero: number, reactors: readonly PhaseLabel[]) =>
     `the capacitor-only compensator meets the power-factor target but balances only partly (|I2|/|I1| = ${negative.toFixed(1)} %, |I0|/|I1| = ${zero.toFixed(1)} %)${reactors.length ? `; full balance needs reactors on ${reactors.join(', ')}` : ''}`,
-  ctBelowLineCurrent: (primaryA: number, lineA: number) =>
-    `the CT primary (${primaryA} A) is below the largest line current (${lineA.toFixed(1)} A): the CT runs past its rating and saturates, and the controller misreads the reactive current; give controller.ctPrimaryA of at least ${Math.ceil(lineA)} A`,
+  /** @param suggestedA the primary trivar would choose for that current (1.25 × it, next standard rating) */
+  ctBelowLineCurrent: (primaryA: number, basis: Pick<CtBasis, 'currentA' | 'sizedOn' | 'placeWords'>, suggestedA: number) => {
+    // One decimal where it shows the figure above the primary; two where one would print them equal.
+    const lineA = Number(f1(basis.currentA)) > primaryA ? f1(basis.currentA) : basis.currentA.toFixed(2);
+    const when = basis.sizedOn === 'given' ? '' : basis.sizedOn === 'before' ? ' before correction' : ' after correction';
+    return `the CT primary (${primaryA} A) is below the largest line current (${lineA} A)${when} at ${basis.placeWords}: the CT runs past its rating and saturates, and the controller misreads the reactive current; give controller.ctPrimaryA of at least ${Math.ceil(basis.currentA)} A (${suggestedA} A is the next standard rating at or above 1.25 × it)`;
+  },
   manySmallUnits: (w: {
     units: number;
     nameplateKvar: number;
@@ -549,6 +554,27 @@ export function meteringPointWords(point: string): string {
   return point === 'origin' ? "the origin of the installation (the supply's terminals, where the service cable starts)" : `the incomer of ${point}`;
 }
 
-/** A target measured away from the bank: its controller must read there, or hold a band set for where it reads. */
-export const meteringWarning = (point: string, board: string): string =>
-  `the target is measured at ${meteringPointWords(point)}, not at ${board}: a controller reading a CT at ${board} holds its band there, so put its CT where the target is measured, or set its band for the PF at ${board} that gives the target there (the PF reached at ${board} is in the lines table)`;
+/**
+ * A target measured away from the bank: its controller must read there (the CT of the controller's
+ * settings is for that point), or hold a band set for where it reads, on a CT for the currents there.
+ * @param boardA the largest line current at the equipment's board before and after correction, A
+ */
+export const meteringWarning = (point: string, board: string, ctChosen: boolean, boardA: { readonly before: number; readonly after: number }): string =>
+  `the target is measured at ${meteringPointWords(point)}, not at ${board}: the controller's CT is ${ctChosen ? 'chosen' : 'checked'} for that point, so put it there and the controller holds its band where the target is judged; a controller reading a CT at ${board} holds its band at ${board} instead, so set that band for the PF at ${board} that gives the target at the metering point (the PF reached at ${board} is in the lines table), and choose that CT on the line currents at ${board} (up to ${f1(boardA.before)} A before and ${f1(boardA.after)} A after correction)`;
+
+/** Where a controller's CT goes, in words (CtBasis.placeWords). */
+export function ctPlaceWords(place: CtBasis['place'], point: string | null): string {
+  if (place === 'metering-point') return `${meteringPointWords(point!)}, where the target is measured`;
+  return point === null ? 'the incomer of the board the equipment is on' : `the incomer of ${point}, the board the equipment is on`;
+}
+
+/** The current a controller's CT is chosen on or checked against, in words (CtBasis.currentWords). */
+export function ctCurrentWords(b: Pick<CtBasis, 'sizedOn' | 'currentA' | 'largestLineCurrentA' | 'afterFrom'>): string {
+  if (b.sizedOn === 'given' || b.largestLineCurrentA === null) return `${f1(b.currentA)} A, the line current given (lineCurrentA)`;
+  const sized = b.afterFrom === 'as-sized' ? ', as sized' : '';
+  // Two figures that print alike are one: "after correction (20.1 A before)" would read as a contradiction.
+  if (f1(b.largestLineCurrentA.before) === f1(b.largestLineCurrentA.after)) return `${f1(b.currentA)} A, the largest line current there before and after correction${sized}`;
+  return b.sizedOn === 'before'
+    ? `${f1(b.currentA)} A, the largest line current there before correction (${f1(b.largestLineCurrentA.after)} A after${sized})`
+    : `${f1(b.currentA)} A, the largest line current there after correction${sized} (${f1(b.largestLineCurrentA.before)} A before)`;
+}

@@ -26,7 +26,7 @@ import { CONTROLLER_OUTPUTS, PRACTICES, capacitorUnitSchema, type CapacitanceTol
 import { CORRECTION_DEFAULTS, toleranceFractions } from './correctionDefaults.js';
 import { TYPICAL_CATALOGUES, catalogueUnitOf, type CatalogueUnit } from './unitCatalogues.js';
 import type { EquipmentBranch, EquipmentGroup } from './equipment.js';
-import type { BankSelection, BankSizing, BankStep, BranchSelection, CorrectionWarning, SelectedUnit, SizedEquipment, UnbuildableBranches } from './correctionResult.js';
+import type { BankSelection, BankSizing, BankStep, BranchSelection, CorrectionWarning, LineComparison, SelectedUnit, SizedEquipment, UnbuildableBranches } from './correctionResult.js';
 import { limitWords, selectionWording, warningText } from './correctionWording.js';
 import { parseOptions } from '../_internal/zodIssues.js';
 import { labellerOf, PHASE_NAMINGS, type PhaseNaming } from '../board/conventions/phaseNames.js';
@@ -34,7 +34,7 @@ import { REGIONS, type Region } from '../board/conventions/region.js';
 import { starWordOf } from '../board/conventions/regionWords.js';
 import { firstFit, searchSet, shortOfTarget, type Need, type SetBuild, type UnitChoice } from './_internal/bankSearch.js';
 import { defaultPractice } from './capacitorDischarge.js';
-import { controllerSettings, resolveCurrentTransformer, responseThresholdA } from './controllerSettings.js';
+import { controllerSettings, controllerWarnings, ctBasisOf, resolveCurrentTransformer, responseThresholdA } from './controllerSettings.js';
 import { checkObjectArgument } from '../_internal/argumentChecks.js';
 import type { TargetCheck } from './correctionTarget.js';
 
@@ -53,7 +53,7 @@ export interface SelectBankUnitsOptions {
   readonly controller?: ControllerSpec;
   /** Target the controller holds (its band). @defaultValue `{ pf: 0.95 }` */
   readonly target?: TargetSpec;
-  /** Largest line current at the design load, A, for the CT. @defaultValue read from the sizing's line comparison */
+  /** Largest line current where the CT reads, A, to choose it on or check it against. @defaultValue the larger of the before and after figures of the sizing's line comparison (the equipment's board) */
   readonly lineCurrentA?: number;
   /** Capacitance tolerance, %. @defaultValue `{ minusPercent: 5, plusPercent: 10 }` (IEC 60831-1, from memory) */
   readonly capacitanceTolerance?: CapacitanceToleranceSpec;
@@ -301,7 +301,10 @@ export function selectBankUnits(sized: SizedEquipment, options?: SelectBankUnits
   // three lines (a delta bank lists A-B, B-C and C-A even where one is empty); a split-phase board has A and B.
   const threePhaseLines = slots.some((s) => s.from === 'C' || s.to === 'C');
   // Steps, numbered across sets.
-  const ct = resolveCurrentTransformer(controllerSpec, opts.lineCurrentA ?? largestLineCurrent(sized));
+  // Alone, a selection knows only the equipment's board and the continuous sizing's after state:
+  // correctBoard chooses the CT again on the build it verified and where the controller reads (withCtReading).
+  const ctBasis = ctBasisOf(opts.lineCurrentA !== undefined ? { givenA: opts.lineCurrentA } : { place: 'board', point: null, lines: sizedLines(sized), afterFrom: 'as-sized' });
+  const ct = resolveCurrentTransformer(controllerSpec, ctBasis.currentA);
   const steps: BankStep[] = [];
   let output = 0;
   const selected = (c: UnitChoice, indices: readonly number[]): SelectedUnit => ({
@@ -428,13 +431,10 @@ export function selectBankUnits(sized: SizedEquipment, options?: SelectBankUnits
     steps,
     band: { minPf: target.pf ?? CORRECTION_DEFAULTS.pf, maxPf: target.maxLaggingPf ?? null, leadingAllowed: target.leading === 'allowed' },
     perLine,
+    ctBasis,
   });
   // A CT given in the file or on the command line is checked against what it must read.
-  const lineCurrentA = opts.lineCurrentA ?? largestLineCurrent(sized);
-  if (controller && !ct.chosen && ct.primaryA < lineCurrentA)
-    warn('ct-below-line-current', warningText.ctBelowLineCurrent(ct.primaryA, lineCurrentA), 'controller.ctPrimaryA', ct.primaryA, lineCurrentA);
-  if (controller && controller.responseSettingA < CORRECTION_DEFAULTS.ckResolutionA)
-    warn('ck-below-resolution', warningText.ckBelowResolution(controller.responseSettingA, CORRECTION_DEFAULTS.ckResolutionA, ct.chosen), 'controller.ctPrimaryA', controller.responseSettingA, CORRECTION_DEFAULTS.ckResolutionA);
+  if (controller) warnings.push(...controllerWarnings(controller));
   const nameplateKvar = steps.reduce((s, st) => s + st.nameplateKvar, 0);
   const units = steps.reduce((s, st) => s + st.units, 0);
   // Many small units forced by a narrow capacitance range: say what sets the range and what would widen it.
@@ -506,8 +506,7 @@ function narrowestWindow(selections: readonly BranchSelection[]): { branch: stri
   return best;
 }
 
-/** Largest line current before correction, from a sizing's line comparison (0 when it has none). */
-function largestLineCurrent(sized: SizedEquipment): number {
-  const lines = (sized as { lines?: readonly { currentA: { before: number } }[] }).lines ?? [];
-  return Math.max(0, ...lines.map((l) => l.currentA.before));
+/** A sizing's line comparison at the equipment's board, before and after as sized (none where it has none). */
+function sizedLines(sized: SizedEquipment): readonly Pick<LineComparison, 'currentA'>[] {
+  return (sized as { lines?: readonly Pick<LineComparison, 'currentA'>[] }).lines ?? [];
 }

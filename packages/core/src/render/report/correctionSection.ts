@@ -81,7 +81,7 @@ function controllerFacts(c: ControllerSettings): ReportBlock {
     kind: 'facts',
     items: [
       ['Controller outputs', `${c.outputsUsed} of ${c.outputs} used; ${c.measurement === 'one-line' ? 'balanced steps, read from one CT' : 'steps serving single lines: the controller measures every line (a CT on each)'}`],
-      ['Current transformer', `${amps(c.ctPrimaryA)}/${amps(c.ctSecondaryA)} A${c.ctChosen ? ' (the next standard primary above 1.25 × the largest line current; use yours if it differs)' : ''}`],
+      ['Current transformer', `${amps(c.ctPrimaryA)}/${amps(c.ctSecondaryA)} A${c.ctChosen ? '' : ' (given)'} at ${c.ctBasis.placeWords}; ${c.ctChosen ? `the next standard primary at or above 1.25 × ${c.ctBasis.currentWords}; use yours if it differs` : `checked against ${c.ctBasis.currentWords}`}`],
       ['Response threshold (C/k)', `${fixed(c.responseThresholdA, 3)} A for the smallest step (${fixed(c.smallestStepKvar, 2)} kvar at nominal voltage)${c.thresholdBasis === 'line-pair' ? ", per line: the step is across two lines, and each of them sees √3/2 of its branch current as reactive current, read against that line's voltage to the neutral" : ''}; set ${fixed(c.responseSettingA, 3)} A (${c.settingFraction} × C/k)`],
       ['Power-factor band', band],
       ['Switching', `delay ${c.switchingDelayS} s; a step is switched on again no sooner than ${c.reconnectionDelayS} s after it went off (discharge time ${c.dischargeTimeS} s, ${c.dischargeRule})`],
