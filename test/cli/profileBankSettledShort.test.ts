@@ -46,7 +46,7 @@ describe('a bank settled short of the target, its open step too large for the ne
       stepTooCoarseHours: 0,
       openStepsTooLargeHours: 2,
       onTheWayHours: 0,
-      openStepsTooLarge: { channel: 'ABC', leastNeedKvar: expect.closeTo(25 - 40 * TAN_095, 9), mostNeedKvar: expect.closeTo(25 - 40 * TAN_095, 9), smallestOpenKvar: 30, closingShare: expect.closeTo((25 - 40 * TAN_095) / 30, 9) },
+      openStepsTooLarge: { channel: 'ABC', leastNeedKvar: expect.closeTo(25 - 40 * TAN_095, 9), mostNeedKvar: expect.closeTo(25 - 40 * TAN_095, 9), smallestOpenKvar: 30, closingShare: expect.closeTo((25 - 40 * TAN_095) / 30, 9), closingStepKvar: expect.closeTo((25 - 40 * TAN_095) / 0.67, 9) },
     });
     expect(bank.steps.map((s: { closings: number }) => s.closings)).toEqual([0, 0]);
   });

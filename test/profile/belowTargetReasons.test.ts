@@ -79,7 +79,7 @@ describe('steps still open, each too large for what is left', () => {
       stepTooCoarseHours: 0,
       openStepsTooLargeHours: 1,
       onTheWayHours: 0,
-      openStepsTooLarge: { channel: 'ABC', leastNeedKvar: expect.closeTo(9, 9), mostNeedKvar: expect.closeTo(11, 9), smallestOpenKvar: 20, closingShare: expect.closeTo(0.45, 9) },
+      openStepsTooLarge: { channel: 'ABC', leastNeedKvar: expect.closeTo(9, 9), mostNeedKvar: expect.closeTo(11, 9), smallestOpenKvar: 20, closingShare: expect.closeTo(0.45, 9), closingStepKvar: expect.closeTo(9 / 0.67, 9) },
     });
   });
 
@@ -157,6 +157,11 @@ describe('the reasons add up to the hours below the target', () => {
         for (const part of [t.allStepsInHours, t.underResponseHours, t.stepTooCoarseHours, t.openStepsTooLargeHours, t.onTheWayHours]) expect(part).toBeGreaterThanOrEqual(0);
         expect(Math.abs(parts(t) - t.hours)).toBeLessThanOrEqual(1e-12 * Math.max(1, t.hours));
         expect(t.openStepsTooLarge !== null).toBe(t.openStepsTooLargeHours > 0);
+        // What would close for it is always smaller than what is open: a lower share, a smaller step.
+        if (t.openStepsTooLarge) {
+          expect(t.openStepsTooLarge.closingShare).toBeLessThanOrEqual(c.responseShare * (1 + 1e-12));
+          expect(t.openStepsTooLarge.closingStepKvar).toBeLessThanOrEqual(t.openStepsTooLarge.smallestOpenKvar * (1 + 1e-12));
+        }
       }),
       { numRuns: 400, seed: 20261205 },
     );

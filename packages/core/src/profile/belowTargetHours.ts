@@ -31,9 +31,11 @@ export interface BelowTarget {
   /** The controller on its way: a step would close (or an over-corrected channel's step open) once the delay runs out or its discharge is done. */
   readonly onTheWayHours: number;
   /**
-   * Where `openStepsTooLargeHours` > 0, what a remedy needs: the least and most kvar left in those intervals,
-   * the smallest step open in any of them, the highest threshold share that would let an open step close in
-   * every one (least of need ÷ the smallest open step), and the channel where they are all on one; else null.
+   * Where `openStepsTooLargeHours` > 0, what a remedy needs: the least and most kvar left in those intervals;
+   * the smallest step open in any of them; the threshold share under which an open step would close in every
+   * one (least of need ÷ the smallest open step); the step size under which a further step would close in
+   * every one (least of need ÷ responseShare); and the channel where they are all on one, else null.
+   * Null where there are no such hours.
    */
   readonly openStepsTooLarge: {
     readonly channel: StepChannel | null;
@@ -41,6 +43,7 @@ export interface BelowTarget {
     readonly mostNeedKvar: number;
     readonly smallestOpenKvar: number;
     readonly closingShare: number;
+    readonly closingStepKvar: number;
   } | null;
 }
 
@@ -74,7 +77,7 @@ export function hoursBelowTarget(
   let coarse = 0;
   let tooLarge = 0;
   let onTheWay = 0;
-  let remedy: { channels: Set<StepChannel>; least: number; most: number; smallestOpen: number; share: number } | null = null;
+  let remedy: { channels: Set<StepChannel>; least: number; most: number; smallestOpen: number; share: number; step: number } | null = null;
   for (let i = 0; i < f.count; i++) {
     let w = 0;
     let q = 0;
@@ -92,7 +95,7 @@ export function hoursBelowTarget(
     let moving = false;
     let full = false;
     let pastBand = false;
-    const stuck: { channel: StepChannel; need: number; smallestOpen: number }[] = [];
+    const stuck: { channel: StepChannel; need: number; smallestOpen: number; step: number }[] = [];
     for (const c of channels) {
       const g = rule.gauge(channelReadingAt(f, phaseIndex, c.channel, i), c.smallestKvar);
       const open = c.members.filter((k) => stepOn[k]![i] !== 1);
@@ -104,7 +107,12 @@ export function hoursBelowTarget(
       if (!open.length) full = true;
       else if (g.wants === 'in' && open.some((k) => rule.mayClose(steps[k]!.kvar, g))) moving = true;
       else if (rule.banded && open.every((k) => steps[k]!.kvar * 1000 > g.room)) pastBand = true;
-      else if (g.wants === 'in') stuck.push({ channel: c.channel, need: g.need / 1000, smallestOpen: Math.min(...open.map((k) => steps[k]!.kvar)) });
+      else if (g.wants === 'in') {
+        // Every open step is kept out by its threshold. In a band too: one within the room is kept out by its
+        // threshold alone, so need ÷ responseShare ≤ its kvar ≤ room, and a step past the room is larger still;
+        // a further step under need ÷ responseShare is then within the room as well.
+        stuck.push({ channel: c.channel, need: g.need / 1000, smallestOpen: Math.min(...open.map((k) => steps[k]!.kvar)), step: g.need / 1000 / settings.responseShare });
+      }
     }
     if (moving) onTheWay += each;
     else if (full) allIn += each;
@@ -113,13 +121,14 @@ export function hoursBelowTarget(
       tooLarge += each;
       for (const s of stuck) {
         const share = s.need / s.smallestOpen;
-        if (!remedy) remedy = { channels: new Set([s.channel]), least: s.need, most: s.need, smallestOpen: s.smallestOpen, share };
+        if (!remedy) remedy = { channels: new Set([s.channel]), least: s.need, most: s.need, smallestOpen: s.smallestOpen, share, step: s.step };
         else {
           remedy.channels.add(s.channel);
           remedy.least = Math.min(remedy.least, s.need);
           remedy.most = Math.max(remedy.most, s.need);
           remedy.smallestOpen = Math.min(remedy.smallestOpen, s.smallestOpen);
           remedy.share = Math.min(remedy.share, share);
+          remedy.step = Math.min(remedy.step, s.step);
         }
       }
     } else under += each;
@@ -138,6 +147,7 @@ export function hoursBelowTarget(
           mostNeedKvar: remedy.most,
           smallestOpenKvar: remedy.smallestOpen,
           closingShare: remedy.share,
+          closingStepKvar: remedy.step,
         }
       : null,
   };

@@ -228,8 +228,8 @@ const floorTo = (x: number, decimals: number) => Math.floor(x * 10 ** decimals +
 
 /**
  * The hours the controller held a state short of the target with steps still open, each too large for what
- * was left, and what would let one close there: a further step under the least need ÷ the threshold share, or
- * a threshold share under the least need ÷ the smallest open step, where that is not below the lowest share a
+ * was left, and what would let one close there in every such interval (BelowTarget.openStepsTooLarge): a further
+ * step under closingStepKvar, or a threshold share under closingShare where that is not below the lowest share a
  * controller can be set to without hunting (MIN_RESPONSE_SHARE).
  */
 function openStepsTooLargeWords(b: ProfileBankResult, hours: string): string {
@@ -239,7 +239,7 @@ function openStepsTooLargeWords(b: ProfileBankResult, hours: string): string {
   if (!r) return head;
   const left = Math.abs(r.mostNeedKvar - r.leastNeedKvar) < 0.005 ? `${r.leastNeedKvar.toFixed(2)} kvar` : `${r.leastNeedKvar.toFixed(2)} to ${r.mostNeedKvar.toFixed(2)} kvar`;
   const place = r.channel !== null && b.steps.some((s) => s.channel !== r.channel) ? ` (${b.placeWords[r.channel] ?? r.channel})` : '';
-  const step = floorTo(r.leastNeedKvar / share, 1);
+  const step = floorTo(r.closingStepKvar, 1);
   const lowerShare = floorTo(r.closingShare, 2);
   const setting = b.source === 'correction-study' ? "the controller's C/k setting" : 'profile.bank.responseShare';
   const threshold =
