@@ -6,7 +6,7 @@
 import { describe, expect, it } from 'vitest';
 import { normaliseBoard, parseBoard, solveBoard } from '@trivar/core';
 import { simulateBank } from '../../packages/core/src/profile/simulateBank.js';
-import { hoursBelowTarget } from '../../packages/core/src/profile/studyProfile.js';
+import { hoursBelowTarget } from '../../packages/core/src/profile/belowTargetHours.js';
 import { expectClose } from '../support/tolerance.js';
 
 const board = normaliseBoard(
@@ -131,6 +131,7 @@ describe('a fixed (always-on) part in the simulator', () => {
 });
 
 describe('hours below the target with a banded bank', () => {
+  const tenAndTen = [{ kvar: 10, channel: 'ABC' as const }, { kvar: 10, channel: 'ABC' as const }];
   it('counts importing intervals under the target PF, and those where the smallest step would pass the upper limit', () => {
     // Four 15-minute intervals on one phase column each (board totals): P, Q in kW, kvar.
     // tan(acos 0.97) = 0.2506 → Q above 7.52 kvar at 30 kW is below target; tan(acos 0.995) = 0.1002 → 3.01 kvar.
@@ -138,11 +139,16 @@ describe('hours below the target with a banded bank', () => {
     const col = (xs: number[]) => Float64Array.from(xs, (x) => x * 1000);
     const zero = new Float64Array(4);
     const f = { count: 4, lineA: [zero], neutralA: zero, phaseV: [zero], lineToLineV: [], phaseW: [col([30, 30, 30, -5])], phaseVar: [col([5, 10, 20, 10])], unbalancePercent: zero, lineDeviationPercent: zero };
-    expect(hoursBelowTarget(f, { targetPf: 0.97, upperPf: 0.995, responseShare: 0.67 }, { smallestKvar: 10, totalKvar: 20, connectedKvar: null }, 900_000)).toEqual({
+    // Two 10 kvar steps, both open. 30/20: room 17 kvar, need 12.5 > 6.7: a step may close, the controller on its way.
+    const open = [new Uint8Array(4), new Uint8Array(4)];
+    expect(hoursBelowTarget(f, { targetPf: 0.97, upperPf: 0.995, responseShare: 0.67 }, { steps: tenAndTen, stepOn: open, phases: ['A'] }, 900_000)).toEqual({
       hours: 0.5,
       allStepsInHours: 0,
       underResponseHours: 0,
       stepTooCoarseHours: 0.25,
+      openStepsTooLargeHours: 0,
+      onTheWayHours: 0.25,
+      openStepsTooLarge: null,
     });
   });
   it('without a band: the hours with every step in, and those with the shortfall under the switching threshold', () => {
@@ -152,12 +158,15 @@ describe('hours below the target with a banded bank', () => {
     const col = (xs: number[]) => Float64Array.from(xs, (x) => x * 1000);
     const zero = new Float64Array(4);
     const f = { count: 4, lineA: [zero], neutralA: zero, phaseV: [zero], lineToLineV: [], phaseW: [col([30, 30, 30, 30])], phaseVar: [col([5, 10, 40, 20])], unbalancePercent: zero, lineDeviationPercent: zero };
-    const connectedKvar = Float64Array.from([10, 10, 20, 10]);
-    expect(hoursBelowTarget(f, { targetPf: 0.97, upperPf: null, responseShare: 0.67 }, { smallestKvar: 10, totalKvar: 20, connectedKvar }, 900_000)).toEqual({
+    const stepOn = [Uint8Array.from([1, 1, 1, 1]), Uint8Array.from([0, 0, 1, 0])];
+    expect(hoursBelowTarget(f, { targetPf: 0.97, upperPf: null, responseShare: 0.67 }, { steps: tenAndTen, stepOn, phases: ['A'] }, 900_000)).toEqual({
       hours: 0.75,
       allStepsInHours: 0.25,
       underResponseHours: 0.25,
       stepTooCoarseHours: 0,
+      openStepsTooLargeHours: 0,
+      onTheWayHours: 0.25,
+      openStepsTooLarge: null,
     });
   });
 });

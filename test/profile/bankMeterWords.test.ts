@@ -7,7 +7,7 @@ const bank = (measuredAt: string | null) =>
     measuredAt,
     steps: [{ step: 1, channel: 'ABC', kvar: 3, closings: 2, openings: 2, closingsPerYear: 730 }],
     settings: { targetPf: 0.98, upperPf: null, responseShare: 0.67 },
-    belowTarget: { hours: 4, allStepsInHours: 4, underResponseHours: 0, stepTooCoarseHours: 0 },
+    belowTarget: { hours: 4, allStepsInHours: 4, underResponseHours: 0, stepTooCoarseHours: 0, openStepsTooLargeHours: 0, onTheWayHours: 0, openStepsTooLarge: null },
   }) as unknown as ProfileBankResult;
 
 describe('belowTargetWords', () => {

@@ -79,6 +79,48 @@ export interface BankController {
   interrupt(): void;
 }
 
+/** A channel's reactive need and room below the upper limit at one reading (var), and which way it wants to switch. */
+export interface ChannelGauge {
+  readonly need: number;
+  readonly room: number;
+  readonly wants: 'in' | 'out' | null;
+}
+
+/**
+ * The switching rule of one channel, apart from timing: its gauge at a reading, and whether a step may
+ * close or open there. The controller moves by it, and the hours below the target are explained by it
+ * (belowTargetHours.ts), so a state the controller holds is never put down to its delay.
+ */
+export interface ChannelRule {
+  readonly banded: boolean;
+  /** `smallestKvar`: the channel's smallest step, whose threshold (responseShare × it) starts any closing. */
+  gauge(r: ChannelReading, smallestKvar: number): ChannelGauge;
+  /** An open step of `kvar` may close: its own threshold under the need and, in a band, within the room. */
+  mayClose(kvar: number, g: Pick<ChannelGauge, 'need' | 'room'>): boolean;
+  /** A connected step of `kvar` may open on an over-corrected channel: in a band any may; without one, a step under the excess by its threshold. */
+  mayOpen(kvar: number, g: Pick<ChannelGauge, 'need' | 'room'>): boolean;
+}
+
+export function channelRule(settings: SwitchingSettings): ChannelRule {
+  const tanTarget = Math.tan(Math.acos(settings.targetPf));
+  const banded = settings.upperPf !== undefined;
+  const tanUpper = banded ? Math.tan(Math.acos(Math.min(1, settings.upperPf!))) : 0;
+  const share = settings.responseShare;
+  return {
+    banded,
+    gauge(r, smallestKvar) {
+      const p = Math.max(r.w, 0);
+      const need = r.var - p * tanTarget;
+      // Room before the upper PF limit: how much capacitance can go in without passing it.
+      const room = r.var - p * tanUpper;
+      const threshold = share * smallestKvar * 1000;
+      return { need, room, wants: need > threshold ? 'in' : (banded ? room < 0 : need < -threshold) ? 'out' : null };
+    },
+    mayClose: (kvar, g) => (!banded || kvar * 1000 <= g.room) && share * kvar * 1000 < g.need,
+    mayOpen: (kvar, g) => banded || share * kvar * 1000 < -g.need,
+  };
+}
+
 /** A move a channel wants: a step in or out, due at `dueMs`. */
 interface Wish {
   readonly channel: StepChannel;
@@ -95,9 +137,8 @@ export function createBankController(steps: readonly SwitchedStep[], settings: S
   const openings = new Int32Array(n);
   const changedAt = new Float64Array(n).fill(Number.NEGATIVE_INFINITY);
   const channels = [...new Set(steps.map((s) => s.channel))];
-  const tanTarget = Math.tan(Math.acos(settings.targetPf));
-  const banded = settings.upperPf !== undefined;
-  const tanUpper = banded ? Math.tan(Math.acos(Math.min(1, settings.upperPf!))) : 0;
+  const rule = channelRule(settings);
+  const banded = rule.banded;
   const delayMs = settings.delaySeconds * 1000;
   const reconnectMs = settings.reconnectSeconds * 1000;
   const inTimer = new Map<StepChannel, number>(channels.map((c) => [c, 0]));
@@ -133,14 +174,7 @@ export function createBankController(steps: readonly SwitchedStep[], settings: S
   };
 
   /** A channel's need and room (var) at a reading, and which way it wants to switch: the one rule every decision reads. */
-  const gauge = (channel: StepChannel, r: ChannelReading): { need: number; room: number; wants: 'in' | 'out' | null } => {
-    const p = Math.max(r.w, 0);
-    const need = r.var - p * tanTarget;
-    // Room before the upper PF limit: how much capacitance can go in without passing it.
-    const room = r.var - p * tanUpper;
-    const threshold = settings.responseShare * smallest.get(channel)! * 1000;
-    return { need, room, wants: need > threshold ? 'in' : (banded ? room < 0 : need < -threshold) ? 'out' : null };
-  };
+  const gauge = (channel: StepChannel, r: ChannelReading): ChannelGauge => rule.gauge(r, smallest.get(channel)!);
 
   /** The step a channel would switch out at this gauge, or −1. */
   const goingOut = (channel: StepChannel, need: number, room: number): number => {
@@ -152,7 +186,7 @@ export function createBankController(steps: readonly SwitchedStep[], settings: S
   const wishOf = (channel: StepChannel, fromMs: number, r: ChannelReading): Wish | null => {
     const { need, room, wants } = gauge(channel, r);
     if (wants === 'in') {
-      const fitting = ofChannel.get(channel)!.filter((s) => !on[s] && (!banded || steps[s]!.kvar * 1000 <= room) && settings.responseShare * steps[s]!.kvar * 1000 < need);
+      const fitting = ofChannel.get(channel)!.filter((s) => !on[s] && rule.mayClose(steps[s]!.kvar, { need, room }));
       if (!fitting.length) return null;
       // The delay, and a step that went out must have discharged before it goes back in.
       const freeAt = Math.min(...fitting.map((s) => changedAt[s]! + reconnectMs));

@@ -14,7 +14,8 @@ import type { BankRun } from './simulateBank.js';
 import { sizeBankSteps } from './sizeBankSteps.js';
 import type { IntervalFigures } from './solveBatch.js';
 import type { ProfileSummary } from './summariseFigures.js';
-import { hoursBelowTarget, type ProfileBankResult, type ProfileStudyOptions } from './studyProfile.js';
+import type { ProfileBankResult, ProfileStudyOptions } from './studyProfile.js';
+import { hoursBelowTarget } from './belowTargetHours.js';
 import { judgedNominalOf } from '../board/nominalVoltages.js';
 import { InputError, inputIssue, type InputIssue } from '../errors.js';
 import { conventionsOf } from '../board/conventions/boardConventions.js';
@@ -167,7 +168,7 @@ export function bankOverProfile(input: BankOverProfileInput, options: Pick<Profi
     const belowTarget = hoursBelowTarget(
       run.meterFigures ?? run.figures,
       { targetPf: settings.targetPf, upperPf: upperPf ?? null, responseShare: settings.responseShare },
-      { smallestKvar: steps.length ? Math.min(...steps.map((x) => x.kvar)) : 0, totalKvar, connectedKvar: steps.length ? run.connectedKvar : null },
+      { steps, stepOn: run.stepOn, phases: board.phases },
       input.intervalMs,
       input.rowHours ?? null,
     );

@@ -4,6 +4,13 @@
  * study's one definition (correction/capacitorDischarge.ts); the voltage unbalance threshold, and the index
  * it judges, is the board region's (board/conventions/unbalanceLimits.ts).
  */
+/**
+ * The lowest switching threshold, as a share of the smallest step: below half a step, a need between
+ * r × step and (1 − r) × step closes the step, which leaves the board over-corrected by more than r × step,
+ * so the step opens again, and so on while the load holds (common practice, no source).
+ */
+export const MIN_RESPONSE_SHARE = 0.5;
+
 export const PROFILE_DEFAULTS = {
   /** Common demand-meter window (common practice, no source). */
   demandWindowMinutes: 15,

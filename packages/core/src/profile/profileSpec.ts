@@ -7,15 +7,12 @@
 import * as z from 'zod';
 import { labelSchema, nameReferenceSchema, nameSchema } from '../board/nameSchemas.js';
 import { CURRENCY_MAX_CHARACTERS } from '../board/boardRanges.js';
+// The lowest switching threshold, and why, is in profileDefaults.ts: the report's advice reads it without zod.
+import { MIN_RESPONSE_SHARE } from './profileDefaults.js';
+
+export { MIN_RESPONSE_SHARE };
 
 const positive = z.number().positive();
-
-/**
- * The lowest switching threshold, as a share of the smallest step: below half a step, a need between
- * r × step and (1 − r) × step closes the step, which leaves the board over-corrected by more than r × step,
- * so the step opens again, and so on while the load holds (common practice, no source).
- */
-export const MIN_RESPONSE_SHARE = 0.5;
 const RESPONSE_SHARE_RANGE = `a number from ${MIN_RESPONSE_SHARE} to 1.5 (× the smallest step): below ${MIN_RESPONSE_SHARE} a step that closes leaves the board over-corrected past the threshold and opens again, so the controller hunts on a steady load (common practice, no source)`;
 const nonNegative = z.number().nonnegative();
 const powerFactor = z.number().gt(0).max(1);

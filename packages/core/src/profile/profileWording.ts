@@ -3,7 +3,7 @@ import { conventionsOf } from '../board/conventions/boardConventions.js';
 import { labellerOf } from '../board/conventions/phaseNames.js';
 import type { CapacitorDischarge } from '../correction/capacitorDischarge.js';
 import type { StepChannel } from './bankController.js';
-import { PROFILE_DEFAULTS } from './profileDefaults.js';
+import { MIN_RESPONSE_SHARE, PROFILE_DEFAULTS } from './profileDefaults.js';
 import { checkNumberArgument, checkObjectArgument } from '../_internal/argumentChecks.js';
 import type { SequenceReport } from './checkIntervalSequence.js';
 import type { ProfileSummary } from './summariseFigures.js';
@@ -223,6 +223,34 @@ export function neutralOverLimitWarnings(summary: ProfileSummary, fromStudy: boo
   ];
 }
 
+/** A figure rounded down to `decimals`: a limit stated as "under x" must not be rounded past. */
+const floorTo = (x: number, decimals: number) => Math.floor(x * 10 ** decimals + 1e-9) / 10 ** decimals;
+
+/**
+ * The hours the controller held a state short of the target with steps still open, each too large for what
+ * was left, and what would let one close there in every such interval (BelowTarget.openStepsTooLarge): a further
+ * step under closingStepKvar, or a threshold share under closingShare where that is not below the lowest share a
+ * controller can be set to without hunting (MIN_RESPONSE_SHARE).
+ */
+function openStepsTooLargeWords(b: ProfileBankResult, hours: string): string {
+  const share = b.settings.responseShare;
+  const r = b.belowTarget.openStepsTooLarge;
+  const head = `${hours} h settled short of the target with the steps still open each too large for what is left`;
+  if (!r) return head;
+  const left = Math.abs(r.mostNeedKvar - r.leastNeedKvar) < 0.005 ? `${r.leastNeedKvar.toFixed(2)} kvar` : `${r.leastNeedKvar.toFixed(2)} to ${r.mostNeedKvar.toFixed(2)} kvar`;
+  const place = r.channel !== null && b.steps.some((s) => s.channel !== r.channel) ? ` (${b.placeWords[r.channel] ?? r.channel})` : '';
+  const step = floorTo(r.closingStepKvar, 1);
+  const lowerShare = floorTo(r.closingShare, 2);
+  const setting = b.source === 'correction-study' ? "the controller's C/k setting" : 'profile.bank.responseShare';
+  const threshold =
+    lowerShare >= MIN_RESPONSE_SHARE && lowerShare < share ? `, or a switching threshold under ${lowerShare.toFixed(2)} × the step (${setting}; ${MIN_RESPONSE_SHARE} at the least, lower and it hunts)` : '';
+  return (
+    `${head}: ${left} still needed${place}, while a step closes only for a need above ${share.toFixed(2)} × its kvar, ` +
+    `${(share * r.smallestOpenKvar).toFixed(2)} kvar for the smallest step still open (${r.smallestOpenKvar.toFixed(1)} kvar)` +
+    (step > 0 ? ` — a further step under ${step.toFixed(1)} kvar${place} would close for it${threshold}` : '')
+  );
+}
+
 /**
  * The hours the board stays below the target with the bank, and why (ProfileBankResult.belowTarget), in one
  * sentence; null where there are none. `trivar profile` prints it and the report states it.
@@ -237,14 +265,16 @@ export function belowTargetWords(b: ProfileBankResult): string | null {
   // Three decimals where a band edge needs them (0.995 must not read as 0.99).
   const pf = (x: number) => x.toFixed(Math.round(x * 100) === x * 100 ? 2 : 3);
   const smallest = Math.min(...b.steps.map((s) => s.kvar));
-  const other = t.hours - t.allStepsInHours - t.underResponseHours - t.stepTooCoarseHours;
+  // With single-phase or line-pair steps each channel answers to its own reading, and is judged on it.
+  const ownReadings = b.steps.some((s) => s.channel !== 'ABC');
   const why = [
-    ...(t.allStepsInHours > 0 ? [`${hours(t.allStepsInHours)} h with every step in (the bank too small for that load)`] : []),
+    ...(t.allStepsInHours > 0 ? [`${hours(t.allStepsInHours)} h with every step in${ownReadings ? ' where it falls short' : ''} (the bank too small for that load)`] : []),
     ...(t.underResponseHours > 0
-      ? [`${hours(t.underResponseHours)} h with the shortfall under the switching threshold (${set.responseShare.toFixed(2)} × ${smallest.toFixed(1)} kvar = ${(set.responseShare * smallest).toFixed(2)} kvar: no step closes for it)`]
+      ? [`${hours(t.underResponseHours)} h with the shortfall${ownReadings ? ' on each phase the steps answer to' : ''} under the switching threshold (${set.responseShare.toFixed(2)} × ${smallest.toFixed(1)} kvar = ${(set.responseShare * smallest).toFixed(2)} kvar: no step closes for it)`]
       : []),
     ...(t.stepTooCoarseHours > 0 ? [`${hours(t.stepTooCoarseHours)} h with no step small enough to stay under ${pf(set.upperPf!)} (steps coarse for this band at that load)`] : []),
-    ...(other > 1e-9 ? [`${hours(other)} h with the controller on its way (switching delay, a step waiting out its discharge${b.steps.some((s) => s.channel !== 'ABC') ? ', or a phase corrected on its own' : ''})`] : []),
+    ...(t.openStepsTooLargeHours > 0 ? [openStepsTooLargeWords(b, hours(t.openStepsTooLargeHours))] : []),
+    ...(t.onTheWayHours > 0 ? [`${hours(t.onTheWayHours)} h with the controller on its way (switching delay, a step waiting out its discharge)`] : []),
   ];
   // Worked where the controller measures: the bank's board, or upstream of it (profile.bank.measuredAt).
   const where = b.measuredAt === null || b.measuredAt === undefined ? 'board PF' : b.measuredAt === 'origin' ? "PF at the origin (the supply's terminals, where the controller measures)" : `PF at the incomer of ${b.measuredAt} (where the controller measures)`;

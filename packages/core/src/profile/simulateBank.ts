@@ -12,7 +12,7 @@
 import type { Board, PhaseId, Terminal } from '../board/boardModel.js';
 import { compileBatchNetwork, edgeIndex, edgePowersAt, type BatchEdge, type DriverColumns, type DriverSpec } from './batchNetwork.js';
 import { allocateFigures, createBatchKernel, recordInterval, type BatchSolveOptions, type IntervalFigures } from './solveBatch.js';
-import { createBankController, isLinePair, type SwitchingSettings, type SwitchedStep, type StepChannel } from './bankController.js';
+import { createBankController, isLinePair, type ChannelReading, type SwitchingSettings, type SwitchedStep, type StepChannel } from './bankController.js';
 import { checkObjectArgument } from '../_internal/argumentChecks.js';
 import { assertBoardModel } from '../board/modelGuards.js';
 
@@ -22,9 +22,38 @@ export interface BankRun {
   readonly meterFigures?: IntervalFigures;
   /** Connected switched kvar (nominal) during each interval; the fixed part comes on top. */
   readonly connectedKvar: Float64Array;
+  /** Per step (in the order given), 1 in each interval it is shown connected (the state held for most of it). */
+  readonly stepOn: readonly Uint8Array[];
   readonly closings: readonly number[];
   readonly openings: readonly number[];
   readonly path: 'closed-form' | 'nodal';
+}
+
+/** Each phase's column in the figures (IntervalFigures keep the board's phases in order). */
+export const phaseIndexOf = (phases: readonly PhaseId[]): ReadonlyMap<PhaseId, number> => new Map(phases.map((p, k) => [p, k]));
+
+/**
+ * What a channel's controller reads in interval i of `figures`: the total over the bank's board's phases
+ * (`phaseIndex`) for a three-phase step,
+ * the two lines' sum for a step across them (its output is shared by those two lines), else its phase.
+ */
+export function channelReadingAt(figures: IntervalFigures, phaseIndex: ReadonlyMap<PhaseId, number>, channel: StepChannel, i: number): ChannelReading {
+  if (channel === 'ABC') {
+    let w = 0;
+    let q = 0;
+    for (let k = 0; k < phaseIndex.size; k++) {
+      w += figures.phaseW[k]![i]!;
+      q += figures.phaseVar[k]![i]!;
+    }
+    return { w, var: q };
+  }
+  if (isLinePair(channel)) {
+    const a = phaseIndex.get(channel[0] as PhaseId)!;
+    const b = phaseIndex.get(channel[2] as PhaseId)!;
+    return { w: figures.phaseW[a]![i]! + figures.phaseW[b]![i]!, var: figures.phaseVar[a]![i]! + figures.phaseVar[b]![i]! };
+  }
+  const k = phaseIndex.get(channel)!;
+  return { w: figures.phaseW[k]![i]!, var: figures.phaseVar[k]![i]! };
 }
 
 /** Edges (and share of the step's kvar on each) a step occupies on this board. */
@@ -128,9 +157,14 @@ export function switchBank(input: SwitchBankInput, prepare: (extraEdges: BatchEd
   );
   const n = figures.count;
   const connectedKvar = new Float64Array(n);
+  const stepOn = steps.map(() => new Uint8Array(n));
+  const record = (i: number, on: Uint8Array, kvar: number) => {
+    connectedKvar[i] = kvar;
+    for (let s = 0; s < steps.length; s++) stepOn[s]![i] = on[s]!;
+  };
   const controller = createBankController(steps, input.settings);
   const powers = new Float64Array(solver.edgeCount * 6);
-  const phaseIndex = new Map(board.phases.map((p, k) => [p, k]));
+  const phaseIndex = phaseIndexOf(board.phases);
   // A controller that never waits (delay 0) could otherwise trade steps back and forth without end.
   const moveCap = 4 * steps.length + 8;
 
@@ -150,25 +184,7 @@ export function switchBank(input: SwitchBankInput, prepare: (extraEdges: BatchEd
     return kvar;
   };
 
-  const readingAt = (i: number) => (channel: StepChannel) => {
-    if (channel === 'ABC') {
-      let w = 0;
-      let q = 0;
-      for (let k = 0; k < board.phases.length; k++) {
-        w += read.phaseW[k]![i]!;
-        q += read.phaseVar[k]![i]!;
-      }
-      return { w, var: q };
-    }
-    if (isLinePair(channel)) {
-      // A step across two lines: its output is shared by those two lines, so it answers to their sum.
-      const a = phaseIndex.get(channel[0] as PhaseId)!;
-      const b = phaseIndex.get(channel[2] as PhaseId)!;
-      return { w: read.phaseW[a]![i]! + read.phaseW[b]![i]!, var: read.phaseVar[a]![i]! + read.phaseVar[b]![i]! };
-    }
-    const k = phaseIndex.get(channel)!;
-    return { w: read.phaseW[k]![i]!, var: read.phaseVar[k]![i]! };
-  };
+  const readingAt = (i: number) => (channel: StepChannel) => channelReadingAt(read, phaseIndex, channel, i);
 
   /**
    * The bank is taken as already settled at the first interval's load when the data starts, as it would be
@@ -206,7 +222,7 @@ export function switchBank(input: SwitchBankInput, prepare: (extraEdges: BatchEd
     let at = controller.advance(start, end, reading);
     if (at === null) {
       // No move: the common case, the interval as solved.
-      connectedKvar[i] = kvar;
+      record(i, controller.on, kvar);
       continue;
     }
     const held = new Map<string, { on: Uint8Array; ms: number; kvar: number }>();
@@ -228,7 +244,7 @@ export function switchBank(input: SwitchBankInput, prepare: (extraEdges: BatchEd
     let shown: { on: Uint8Array; ms: number; kvar: number } | undefined;
     for (const entry of held.values()) if (!shown || entry.ms > shown.ms) shown = entry;
     if (shown!.on.join('') !== controller.on.join('')) solveWith(i, shown!.on);
-    connectedKvar[i] = shown!.kvar;
+    record(i, shown!.on, shown!.kvar);
   }
-  return { figures, ...(input.meter ? { meterFigures: input.meter } : {}), connectedKvar, closings: [...controller.closings], openings: [...controller.openings], path: solver.path };
+  return { figures, ...(input.meter ? { meterFigures: input.meter } : {}), connectedKvar, stepOn, closings: [...controller.closings], openings: [...controller.openings], path: solver.path };
 }

@@ -14,6 +14,7 @@ import type { BankDesign, SwitchingFromBank } from './switchingFromBank.js';
 import type { SequenceReport } from './checkIntervalSequence.js';
 import type { ProfileSpec } from './profileSpec.js';
 import { simulateBank } from './simulateBank.js';
+import type { BelowTarget } from './belowTargetHours.js';
 import { clearRoundOff, conductorFloorA } from './intervalRoundOff.js';
 import { bankOverProfile } from './bankOverProfile.js';
 import { allocateFigures, solveBatch, type BatchSolveOptions, type IntervalFigures } from './solveBatch.js';
@@ -132,12 +133,11 @@ export interface ProfileBankResult {
    */
   readonly measuredAt: string | null;
   /**
-   * Board-total PF below the target while importing (where the controller measures), hours, and why: every
-   * step already in (the bank too small for that load); the shortfall under the controller's response threshold
-   * (responseShare × the smallest step: no step closes for it); with an upper limit, no step small enough to stay
-   * under it (steps too coarse for the band at that load). Hours in none of these are the controller on its way
-   * (the switching delay, a step waiting out its discharge) or, with single-phase steps, a phase corrected on its
-   * own. All 0 where the PF is at or above the target in every importing interval.
+   * Board-total PF below the target while importing (where the controller measures), hours, and why, each
+   * interval by the simulated controller's state in it (belowTargetHours.ts): every step in; the shortfall under
+   * the response threshold; with an upper limit, steps too coarse for the band; settled with the open steps each
+   * too large for what is left; the controller on its way. All 0 where the PF is at or above the target in
+   * every importing interval.
    */
   readonly belowTarget: BelowTarget;
   /**
@@ -203,52 +203,6 @@ export function resolveLimits(board: Board, spec: ProfileSpec | undefined): Reso
     voltageHighPercent: l?.voltageHighPercent ?? 100 + own.overPercent,
     voltageLimitsFrom: fromProfile ? 'profile.limits' : own.preset,
   };
-}
-
-export interface BelowTarget {
-  readonly hours: number;
-  readonly allStepsInHours: number;
-  readonly underResponseHours: number;
-  readonly stepTooCoarseHours: number;
-}
-
-/**
- * See ProfileBankResult.belowTarget: board totals, import only; a step's kvar taken at nominal voltage.
- * `connectedKvar` is the switched kvar in each interval, `totalKvar` all the steps together; `upperPf` null
- * for a controller without an upper limit; `rowHours` the hours each interval stands for where rows are not
- * all one interval apart (IntervalTable.rowHours).
- */
-export function hoursBelowTarget(
-  f: IntervalFigures,
-  settings: { readonly targetPf: number; readonly upperPf: number | null; readonly responseShare: number },
-  bank: { readonly smallestKvar: number; readonly totalKvar: number; readonly connectedKvar: Float64Array | null },
-  intervalMs: number,
-  rowHours: Float64Array | null = null,
-): BelowTarget {
-  const tanTarget = Math.tan(Math.acos(settings.targetPf));
-  const tanUpper = settings.upperPf === null ? null : Math.tan(Math.acos(Math.min(1, settings.upperPf)));
-  const threshold = settings.responseShare * bank.smallestKvar * 1000;
-  const h = intervalMs / 3_600_000;
-  // Counted in intervals (each row's share of one where rows are irregular), then made hours.
-  let below = 0;
-  let allIn = 0;
-  let under = 0;
-  let coarse = 0;
-  for (let i = 0; i < f.count; i++) {
-    let w = 0;
-    let q = 0;
-    for (let k = 0; k < f.phaseW.length; k++) {
-      w += f.phaseW[k]![i]!;
-      q += f.phaseVar[k]![i]!;
-    }
-    if (w <= 0 || q <= w * tanTarget) continue;
-    const each = rowHours ? rowHours[i]! / h : 1;
-    below += each;
-    if (bank.connectedKvar && bank.connectedKvar[i]! >= bank.totalKvar - 1e-9) allIn += each;
-    else if (tanUpper !== null && q - bank.smallestKvar * 1000 < w * tanUpper) coarse += each;
-    else if (q - w * tanTarget <= threshold) under += each;
-  }
-  return { hours: below * h, allStepsInHours: allIn * h, underResponseHours: under * h, stepTooCoarseHours: coarse * h };
 }
 
 /** An offset from UTC as ISO 8601 writes it after a time: +01:00, -05:00, +05:45. */

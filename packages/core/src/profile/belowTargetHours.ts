@@ -1,0 +1,154 @@
+/**
+ * The hours a board stays below its PF target with the automatic bank, and why. Each such interval is
+ * explained by the simulated controller's own state in it: the steps it shows open, what each channel
+ * reads there, and the controller's rule (bankController.ts channelRule). So a state the controller holds
+ * (nothing left that it may close) is never put down to its delay, and "on its way" means a step would
+ * close or open there once the delay runs out or its discharge is done.
+ */
+import type { PhaseId } from '../board/boardModel.js';
+import { channelRule, type StepChannel, type SwitchedStep } from './bankController.js';
+import { channelReadingAt, phaseIndexOf } from './simulateBank.js';
+import type { IntervalFigures } from './solveBatch.js';
+
+/**
+ * Board-total PF below the target while importing (where the controller measures), hours, split by why;
+ * the five parts add up to `hours`. A channel is what a step answers to (the board for a three-phase step,
+ * its phase or line pair for the others); the first reason any channel short of the target gives decides.
+ */
+export interface BelowTarget {
+  readonly hours: number;
+  /** Every step in (every step of the channel that falls short): the bank too small for that load. */
+  readonly allStepsInHours: number;
+  /** The shortfall under the controller's response threshold (responseShare × the channel's smallest step): no step closes for it. */
+  readonly underResponseHours: number;
+  /** With an upper limit: every step still open would carry the PF past it (steps too coarse for the band at that load). */
+  readonly stepTooCoarseHours: number;
+  /**
+   * Settled with steps still open, each too large for what is left: the need is above the response threshold,
+   * but each open step closes only for a need above responseShare × its own kvar, and that is above the need.
+   */
+  readonly openStepsTooLargeHours: number;
+  /** The controller on its way: a step would close (or an over-corrected channel's step open) once the delay runs out or its discharge is done. */
+  readonly onTheWayHours: number;
+  /**
+   * Where `openStepsTooLargeHours` > 0, what a remedy needs: the least and most kvar left in those intervals;
+   * the smallest step open in any of them; the threshold share under which an open step would close in every
+   * one (least of need ÷ the smallest open step); the step size under which a further step would close in
+   * every one (least of need ÷ responseShare); and the channel where they are all on one, else null.
+   * Null where there are no such hours.
+   */
+  readonly openStepsTooLarge: {
+    readonly channel: StepChannel | null;
+    readonly leastNeedKvar: number;
+    readonly mostNeedKvar: number;
+    readonly smallestOpenKvar: number;
+    readonly closingShare: number;
+    readonly closingStepKvar: number;
+  } | null;
+}
+
+/**
+ * See BelowTarget: board totals decide whether an interval is below the target (import only); the controller's
+ * state in it decides why. `stepOn` is each switched step's state per interval (BankRun.stepOn); `phases` the
+ * bank's board's phases, in the figures' order; `upperPf` null for a controller without an upper limit;
+ * `rowHours` the hours each interval stands for where rows are not all one interval apart (IntervalTable.rowHours).
+ * A bank of no switched steps (a fixed part alone) is "every step in".
+ */
+export function hoursBelowTarget(
+  f: IntervalFigures,
+  settings: { readonly targetPf: number; readonly upperPf: number | null; readonly responseShare: number },
+  bank: { readonly steps: readonly SwitchedStep[]; readonly stepOn: readonly Uint8Array[]; readonly phases: readonly PhaseId[] },
+  intervalMs: number,
+  rowHours: Float64Array | null = null,
+): BelowTarget {
+  const tanTarget = Math.tan(Math.acos(settings.targetPf));
+  const rule = channelRule({ targetPf: settings.targetPf, responseShare: settings.responseShare, delaySeconds: 0, reconnectSeconds: 0, ...(settings.upperPf === null ? {} : { upperPf: settings.upperPf }) });
+  const { steps, stepOn } = bank;
+  const phaseIndex = phaseIndexOf(bank.phases);
+  const channels = [...new Set(steps.map((s) => s.channel))].map((channel) => {
+    const members = steps.flatMap((s, k) => (s.channel === channel ? [k] : []));
+    return { channel, members, smallestKvar: Math.min(...members.map((k) => steps[k]!.kvar)) };
+  });
+  const h = intervalMs / 3_600_000;
+  // Counted in intervals (each row's share of one where rows are irregular), then made hours.
+  let below = 0;
+  let allIn = 0;
+  let under = 0;
+  let coarse = 0;
+  let tooLarge = 0;
+  let onTheWay = 0;
+  let remedy: { channels: Set<StepChannel>; least: number; most: number; smallestOpen: number; share: number; step: number } | null = null;
+  for (let i = 0; i < f.count; i++) {
+    let w = 0;
+    let q = 0;
+    for (let k = 0; k < f.phaseW.length; k++) {
+      w += f.phaseW[k]![i]!;
+      q += f.phaseVar[k]![i]!;
+    }
+    if (w <= 0 || q <= w * tanTarget) continue;
+    const each = rowHours ? rowHours[i]! / h : 1;
+    below += each;
+    if (steps.every((_, k) => stepOn[k]![i] === 1)) {
+      allIn += each;
+      continue;
+    }
+    let moving = false;
+    let full = false;
+    let pastBand = false;
+    const stuck: { channel: StepChannel; need: number; smallestOpen: number; step: number }[] = [];
+    for (const c of channels) {
+      const g = rule.gauge(channelReadingAt(f, phaseIndex, c.channel, i), c.smallestKvar);
+      const open = c.members.filter((k) => stepOn[k]![i] !== 1);
+      if (g.need <= 0) {
+        // Content, or over-corrected with a step it would take out.
+        if (g.wants === 'out' && c.members.some((k) => stepOn[k]![i] === 1 && rule.mayOpen(steps[k]!.kvar, g))) moving = true;
+        continue;
+      }
+      if (!open.length) full = true;
+      else if (g.wants === 'in' && open.some((k) => rule.mayClose(steps[k]!.kvar, g))) moving = true;
+      else if (rule.banded && open.every((k) => steps[k]!.kvar * 1000 > g.room)) pastBand = true;
+      else if (g.wants === 'in') {
+        // Every open step is kept out by its threshold. In a band too: one within the room is kept out by its
+        // threshold alone, so need ÷ responseShare ≤ its kvar ≤ room, and a step past the room is larger still;
+        // a further step under need ÷ responseShare is then within the room as well.
+        stuck.push({ channel: c.channel, need: g.need / 1000, smallestOpen: Math.min(...open.map((k) => steps[k]!.kvar)), step: g.need / 1000 / settings.responseShare });
+      }
+    }
+    if (moving) onTheWay += each;
+    else if (full) allIn += each;
+    else if (pastBand) coarse += each;
+    else if (stuck.length) {
+      tooLarge += each;
+      for (const s of stuck) {
+        const share = s.need / s.smallestOpen;
+        if (!remedy) remedy = { channels: new Set([s.channel]), least: s.need, most: s.need, smallestOpen: s.smallestOpen, share, step: s.step };
+        else {
+          remedy.channels.add(s.channel);
+          remedy.least = Math.min(remedy.least, s.need);
+          remedy.most = Math.max(remedy.most, s.need);
+          remedy.smallestOpen = Math.min(remedy.smallestOpen, s.smallestOpen);
+          remedy.share = Math.min(remedy.share, share);
+          remedy.step = Math.min(remedy.step, s.step);
+        }
+      }
+    } else under += each;
+  }
+  return {
+    hours: below * h,
+    allStepsInHours: allIn * h,
+    underResponseHours: under * h,
+    stepTooCoarseHours: coarse * h,
+    openStepsTooLargeHours: tooLarge * h,
+    onTheWayHours: onTheWay * h,
+    openStepsTooLarge: remedy
+      ? {
+          channel: remedy.channels.size === 1 ? [...remedy.channels][0]! : null,
+          leastNeedKvar: remedy.least,
+          mostNeedKvar: remedy.most,
+          smallestOpenKvar: remedy.smallestOpen,
+          closingShare: remedy.share,
+          closingStepKvar: remedy.step,
+        }
+      : null,
+  };
+}
