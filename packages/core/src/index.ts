@@ -332,5 +332,5 @@ export type { Region, RegionBasis } from './board/conventions/region.js';
 export { inferRegion } from './board/conventions/region.js';
 export type { BoardConventions } from './board/conventions/boardConventions.js';
 export type { VoltageCheck, VoltageExtreme } from './analysis/voltageCheck.js';
-export type { RegionWords, StarWord } from './board/conventions/regionWords.js';
+export type { RegionWords, StarWord, SourceModel } from './board/conventions/regionWords.js';
 export { regionWords, starWordOf } from './board/conventions/regionWords.js';

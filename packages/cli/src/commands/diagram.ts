@@ -34,9 +34,18 @@ export interface DiagramCommandOptions {
   readonly board?: string;
 }
 
+/**
+ * The sequence view of a board that has no sequence components: one refusal (exit 2, the view asked for does not
+ * fit the file), the same whether or not a correction is drawn, made before any study runs.
+ */
+function assertViewFits(view: DiagramView, system: string): void {
+  if (view === 'sequence' && system !== 'three-phase-4wire' && system !== 'three-phase-3wire')
+    throw new UsageError(`the sequence view needs a three-phase board; this one is ${system}`);
+}
+
 /** The phasor or sequence drawing of one solved board. */
 function drawSolved(result: BoardResult, view: 'phasors' | 'sequence'): string {
-  if (view === 'sequence' && !result.sequences) throw new UsageError(`the sequence view needs a three-phase board; this one is ${result.board.system}`);
+  assertViewFits(view, result.board.system);
   return view === 'sequence' ? renderSequenceDiagram(result) : renderPhasorDiagram(result);
 }
 
@@ -53,6 +62,7 @@ function drawBoard(raw: unknown, view: DiagramView, options: DiagramCommandOptio
   if (view === 'one-line') throw new UsageError('the one-line view draws an installation (a file with boards:); this file is a single board — try --view phasors');
   const spec = parseBoard(raw);
   const board = normaliseBoard(spec);
+  assertViewFits(view, board.system);
   if (view === 'triangles' || options.withCorrection) {
     if (!spec.correction) throw new UsageError(needsStudy(view));
     const study = boardCorrection(board, spec.correction, optionName(view), spec);
@@ -100,6 +110,7 @@ function drawInstallation(raw: unknown, view: DiagramView, options: DiagramComma
     const whole = solveInstallationModel(installation);
     return solved(whole, renderOneLineDiagram(whole));
   }
+  assertViewFits(view, installation.main.system);
   if (view === 'triangles' || options.withCorrection) {
     if (!spec.correction) throw new UsageError(needsStudy(view));
     // The equipment goes on the board the study names; the drawing shows --board (default: that board).

@@ -38,14 +38,29 @@ function limitsLine(r: InstallationResult): string {
 /** The voltage unbalance index the installation's region judges (unbalanceLimits.ts): |V2|/|V1|, or the line-to-line deviation. */
 const unbalanceLimitOf = (r: InstallationResult) => VOLTAGE_UNBALANCE_LIMITS[r.boards[0]!.result.conventions.region];
 
-/** The unbalance column's index in words where it is not |V2|/|V1| (its header says that one). */
+/**
+ * Which boards the unbalance column can fill: a three-phase board's (it has sequence components); a split-phase
+ * or single-phase board has one line-to-line voltage or none, so no index. 'none' leaves out the column and its legend.
+ */
+function unbalanceColumn(r: InstallationResult): 'every board' | 'some boards' | 'none' {
+  const judged = r.boards.filter((b) => b.result.unbalance !== null).length;
+  return judged === 0 ? 'none' : judged === r.boards.length ? 'every board' : 'some boards';
+}
+
+/** The unbalance column's index in words where it is not |V2|/|V1| (its header says that one), and which boards it applies to. */
 function unbalanceWords(r: InstallationResult): string {
+  const column = unbalanceColumn(r);
+  if (column === 'none') return '';
   const limit = unbalanceLimitOf(r);
-  return limit.definition === null ? '' : `V unbal.: ${limit.definition} (${limit.source}); `;
+  const header = limit.index === 'negative-sequence' ? 'VUF' : 'V unbal.';
+  const which = column === 'some boards' ? ", on three-phase boards only ('-': a board with no three line voltages)" : '';
+  if (limit.definition === null) return which === '' ? '' : `${header}${which}; `;
+  return `${header}: ${limit.definition} (${limit.source})${which}; `;
 }
 
 function boardTable(r: InstallationResult): string {
   const limit = unbalanceLimitOf(r);
+  const withUnbalance = unbalanceColumn(r) !== 'none';
   const rows = r.boards.map((b) => {
     const res = b.result;
     // The voltages the verdict beside them judges (line-to-neutral, line-to-line, at the loads).
@@ -54,7 +69,7 @@ function boardTable(r: InstallationResult): string {
       percentBesideBand(res.voltageCheck.limits, res.voltageCheck.lowest.percent),
       percentBesideBand(res.voltageCheck.limits, res.voltageCheck.highest.percent),
       res.neutral ? fixed(res.neutral.current.magnitude, 1) : res.board.withoutNeutral ? '-' : '',
-      res.unbalance ? fixed(unbalanceFigure(limit, res.unbalance), 2) : '',
+      ...(withUnbalance ? [res.unbalance ? fixed(unbalanceFigure(limit, res.unbalance), 2) : '-'] : []),
       fixed(res.totals.kW, 2),
       fixed(res.totals.kvar, 2),
       fixed(res.source.kW, 2),
@@ -68,7 +83,7 @@ function boardTable(r: InstallationResult): string {
       { header: 'min %nom' },
       { header: 'max %nom' },
       { header: 'N A' },
-      { header: limit.index === 'negative-sequence' ? 'VUF %' : 'V unbal. %' },
+      ...(withUnbalance ? [{ header: limit.index === 'negative-sequence' ? 'VUF %' : 'V unbal. %' }] : []),
       { header: 'own kW' },
       { header: 'own kvar' },
       { header: 'fed kW' },

@@ -29,8 +29,8 @@ function dropDefinition(r: BoardResult): string {
 /** A phase, line pair or connection (A/B/C inside) as this board's report labels it. */
 export const labeller = (r: BoardResult) => (term: string) => labelIn(r.conventions.phaseNames, term);
 
-/** The region's words for this board (center tap and grounded conductor in North America). */
-export const wordsOf = (r: BoardResult) => regionWords(r.conventions.region, r.board.system as Parameters<typeof regionWords>[1]);
+/** The region's words for this board (center tap and grounded conductor in North America; the transformer's center tap where the file gives one). */
+export const wordsOf = (r: BoardResult) => regionWords(r.conventions.region, r.board.system as Parameters<typeof regionWords>[1], r.board.suppliedByTransformer ? 'transformer' : 'source');
 
 /** The voltage-limit verdict, judged as the warnings are; its lowest and highest printed with the decimals that show their side. */
 export function voltageVerdictLine(r: BoardResult): string {

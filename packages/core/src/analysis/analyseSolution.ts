@@ -12,6 +12,7 @@ import { fortescueComponents, type SequenceSet } from './symmetricalComponents.j
 import { deviationFromAveragePercent, nemaDerating } from './unbalanceIndices.js';
 import { boardPowerDefinitions, positiveSequencePower } from './powerDefinitions.js';
 import { conventionsOf } from '../board/conventions/boardConventions.js';
+import { sourceModelOf } from '../board/conventions/regionWords.js';
 import { labelIn } from '../board/conventions/phaseNames.js';
 import { checkVoltages } from './voltageCheck.js';
 import { boardWarnings, GENERAL_CAUTION, NEUTRAL_CAUTION } from './boardWarnings.js';
@@ -315,6 +316,7 @@ export function analyseSolution(solved: NetworkSolution): BoardResult {
       neutralOpen: board.neutralOpen,
       ...(board.withoutNeutral ? { withoutNeutral: true as const } : {}),
       ...(hasIdealSource(board) ? { idealSource: true as const } : {}),
+      ...(sourceModelOf(board) === 'transformer' ? { suppliedByTransformer: true as const } : {}),
     },
     conventions,
     solve: { iterations: solution.iterations, lastChangePercent: solution.lastChange * 100 },

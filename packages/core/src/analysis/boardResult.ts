@@ -266,6 +266,11 @@ export interface BoardResult {
     readonly withoutNeutral?: true;
     /** Present on the main board when the supply is ideal (no transformer, impedance, bank or open delta: zero source impedance): its terminals hold the EMF whatever the load, and it has no windings to lose power in. */
     readonly idealSource?: true;
+    /**
+     * Present on every board the file's supply transformer feeds (supply.transformer, or single-phase units rated
+     * in kVA): the words naming the source's neutral point name the transformer's (its center tap on split-phase).
+     */
+    readonly suppliedByTransformer?: true;
   };
   /**
    * Region, phase labels and voltage limits the report follows. Keys in this result stay

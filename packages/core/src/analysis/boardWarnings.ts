@@ -54,8 +54,12 @@ const above = (x: number, limit: number) => {
   for (let digits = 1; digits < 4; digits++) if (+x.toFixed(digits) > limit) return x.toFixed(digits);
   return x.toFixed(4);
 };
-/** Amps to 0.1 A, or to 2 significant figures when that would print a non-zero current as 0.0. */
-const amps = (x: number) => (x === 0 || x >= 0.05 ? x.toFixed(1) : x.toPrecision(2));
+/**
+ * Amps to 0.1 A, or to 2 significant figures when that would print a non-zero current as 0.0 (0.031, not 0.0):
+ * the rule of every current these warnings and the current-triangle drawing print. A signed part keeps its sign.
+ */
+export const ampsFigure = (x: number): string => (x === 0 ? '0.0' : Math.abs(x) >= 0.05 ? x.toFixed(1) : x.toPrecision(2));
+const amps = ampsFigure;
 
 export function boardWarnings(input: {
   /** Loads whose current/power part fell below the solver's low-voltage threshold: name and lowest per-unit voltage. */

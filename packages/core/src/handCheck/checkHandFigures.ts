@@ -11,7 +11,7 @@ import type { BoardResult } from '../analysis/boardResult.js';
 import { solveBoardModel } from '../analysis/solveBoardModel.js';
 import { correctionCautions } from '../correction/correctionWording.js';
 import { conventionsOf } from '../board/conventions/boardConventions.js';
-import { regionWords } from '../board/conventions/regionWords.js';
+import { regionWords, sourceModelOf } from '../board/conventions/regionWords.js';
 import { labellerOf, type PhaseLabel, type PhaseLabeller } from '../board/conventions/phaseNames.js';
 import { parseHandFigures } from './validateHandFigures.js';
 import type { HandFiguresSpec } from './handFiguresSpec.js';
@@ -274,7 +274,7 @@ export function checkHandFigures(board: Board, figures: unknown): HandCheckResul
   const effects: EffectContribution[] = [
     contribution('line-pair-split', effectExplanation.lineSplit(pairLoads.reduce((s, b) => s + b.sNominal.re, 0) / 1000, pairLoads.reduce((s, b) => s + b.sNominal.im, 0) / 1000, pairCapKvar, board.system === 'split-phase', labelsOf(board)), f[0], f[1]!, board),
     contribution('board-voltage', hasDrop ? effectExplanation.boardVoltage(Math.min(...volts), Math.max(...volts), unbalancedSource) : effectExplanation.noDrop, f[1]!, f[2]!, board),
-    contribution('neutral-return', board.hasNeutral && !board.neutralOpen ? effectExplanation.neutralReturn(rActual.neutral?.current.magnitude ?? 0, rNeutral.neutral?.current.magnitude ?? 0, neutralBar, regionWords(conventionsOf(board).region, board.system).sourceNeutralPoint, board.system === 'split-phase') : effectExplanation.noNeutral, f[2]!, f[3]!, board),
+    contribution('neutral-return', board.hasNeutral && !board.neutralOpen ? effectExplanation.neutralReturn(rActual.neutral?.current.magnitude ?? 0, rNeutral.neutral?.current.magnitude ?? 0, neutralBar, regionWords(conventionsOf(board).region, board.system, sourceModelOf(board)).sourceNeutralPoint, board.system === 'split-phase') : effectExplanation.noNeutral, f[2]!, f[3]!, board),
     contribution('capacitor-voltage', effectExplanation.capacitorVoltage(capacitors.reduce((s, c) => s + c.kvarAtAppliedV, 0), plans.reduce((s, p) => s + p.handKvar, 0), ratedNotes), f[3]!, f[4]!, board),
     contribution('voltage-dependent-loads', allConstantPower ? effectExplanation.allConstantPower : effectExplanation.voltageDependentLoads(solvedKW, solvedKvar, rated.re / 1000, rated.im / 1000), f[4]!, f[5]!, board),
   ];

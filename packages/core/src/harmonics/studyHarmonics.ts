@@ -30,7 +30,7 @@ import { powerReading } from '../analysis/powerReading.js';
 import { bankRatingIssue, bankRatingWarningOn, boardNominalPair } from '../board/bankRatingCheck.js';
 import type { CapacitorDuty, ContinuousVoltage, DistortionReading, DutyCase, DutyCondition, HarmonicLineReading, HarmonicsPowerFactor, HarmonicsReport, HarmonicsWarning, NeutralCheck, ResonanceScan, TddCheck, VoltageDistortionCheck } from './harmonicsResult.js';
 import { conventionsOf } from '../board/conventions/boardConventions.js';
-import { regionWords, type RegionWords } from '../board/conventions/regionWords.js';
+import { regionWords, sourceModelOf, type RegionWords } from '../board/conventions/regionWords.js';
 import { labelIn } from '../board/conventions/phaseNames.js';
 import { ROUND_OFF_MARGIN } from '../analysis/boardWarnings.js';
 
@@ -285,7 +285,7 @@ function sourceAssumptions(board: Board, words: RegionWords): string[] {
 
 export function assumptions(board: Board, model: HarmonicModel, otherBanks = false): string[] {
   const forms = new Set(model.loads.flatMap((l) => (l.kind === 'linear' ? [l.form] : [])));
-  const words = regionWords(conventionsOf(board).region, board.system);
+  const words = regionWords(conventionsOf(board).region, board.system, sourceModelOf(board));
   return [
     ...sourceAssumptions(board, words),
     forms.size

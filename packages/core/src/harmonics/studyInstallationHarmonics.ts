@@ -13,7 +13,7 @@ import type { InstallationBaseSpec } from '../board/installationSchema.js';
 import { normaliseInstallation } from '../board/normaliseInstallation.js';
 import { conventionsOf } from '../board/conventions/boardConventions.js';
 import { labelIn } from '../board/conventions/phaseNames.js';
-import { regionWords } from '../board/conventions/regionWords.js';
+import { regionWords, sourceModelOf } from '../board/conventions/regionWords.js';
 import { boardOfInstallation, installationOf, withBoardLoads } from '../network/installationModel.js';
 import { bankBoardsOf } from './banksInService.js';
 import { solveCompiledInstallation, type InstallationSolution, type SolveOptions } from '../network/solveNetwork.js';
@@ -143,7 +143,7 @@ function installationAssumptions(main: Board, models: readonly HarmonicModel[], 
   return [
     ...assumptions(main, merged, banks.length > 1),
     main.system === 'split-phase'
-      ? `sub-board feeders per conductor like the service feeder (line and neutral); each feeder neutral carries the difference of its two line currents at every order back towards ${regionWords(conventionsOf(main).region, main.system).sourceNeutralPoint}`
+      ? `sub-board feeders per conductor like the service feeder (line and neutral); each feeder neutral carries the difference of its two line currents at every order back towards ${regionWords(conventionsOf(main).region, main.system, sourceModelOf(main)).sourceNeutralPoint}`
       : main.hasNeutral
         ? 'sub-board feeders per conductor like the service feeder (line and neutral); each feeder neutral carries its boards’ zero-sequence (triplen) current back towards the source'
         : 'sub-board feeders per conductor like the service feeder; with no neutral, triplen currents of a balanced set have no path and only unbalance lets them flow in the lines',

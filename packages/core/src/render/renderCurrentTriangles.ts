@@ -9,8 +9,9 @@ import type { BoardResult, PhaseReading } from '../analysis/boardResult.js';
 import { EQUIPMENT_COLOUR, GRID_COLOUR, INK, MUTED_INK, PHASE_COLOUR } from './palette.js';
 import { phasorScale } from './phasorScale.js';
 import { arrow, scaleBar, subscripted, type Point } from './svgShapes.js';
-import { attrs, coord, escapeXml, fixed, sig3 } from './svgText.js';
+import { attrs, coord, drawingTitle, escapeXml, fixed, sig3 } from './svgText.js';
 import { assertBoardResult } from '../analysis/resultGuards.js';
+import { ampsFigure } from '../analysis/boardWarnings.js';
 import { checkObjectArgument } from '../_internal/argumentChecks.js';
 import { checkOptionKeys } from '../_internal/argumentChecks.js';
 
@@ -36,7 +37,7 @@ export function lineCurrentParts(p: PhaseReading): LineCurrentParts {
 }
 
 export interface CurrentTriangleOptions {
-  /** Heading inside the drawing. @defaultValue `Line current triangles — before and after` */
+  /** Heading inside the drawing; '' for none (the <title> is then the board's name alone). @defaultValue `Line current triangles — before and after` */
   readonly title?: string;
   /** What made the change, for the legend. @defaultValue `the correction` */
   readonly changeName?: string;
@@ -44,10 +45,13 @@ export interface CurrentTriangleOptions {
 
 export const TRIANGLE_LAYOUT = { panelWidth: 210, top: 64, bottomText: 86, widthBudget: 150, heightBudget: 230 } as const;
 
-/** A current figure: three significant figures, and a plain 0 for none (not 0.000, which reads as a measured figure). */
-const amps = (x: number): string => (x === 0 ? '0' : sig3(x));
+/**
+ * A current label: to 0.1 A as the correction's line table prints it, 2 significant figures where 0.1 A would
+ * show a real current as 0.0 (ampsFigure, the warnings' rule), and a plain 0 for none (a line with no current).
+ */
+const amps = (x: number): string => (x === 0 ? '0' : ampsFigure(x));
 /** A line's current and PF: the figure and PF, or only 'no current' where it carries none. */
-const currentText = (r: LineCurrentParts): string => (r.magnitudeA === 0 ? 'no current' : `${sig3(r.magnitudeA)} A · ${pfText(r)}`);
+const currentText = (r: LineCurrentParts): string => (r.magnitudeA === 0 ? 'no current' : `${amps(r.magnitudeA)} A · ${pfText(r)}`);
 
 const pfText = (r: LineCurrentParts): string => r.pf === null ? 'no current' : `PF ${fixed(r.pf, 3)}${r.sense === 'unity' ? '' : r.sense === 'lagging' ? ' lag' : ' lead'}`;
 
@@ -101,14 +105,14 @@ export function renderCurrentTriangles(before: BoardResult, after: BoardResult, 
     text(45, escapeXml(`active ${amps(l.before.activeA)} → ${amps(l.after.activeA)} A`), 'normal', MUTED_INK);
     text(60, escapeXml(`reactive ${amps(l.before.reactiveA)} → ${amps(l.after.reactiveA)} A`), 'normal', MUTED_INK);
   });
-  const title = options.title ?? 'Line current triangles — before and after';
+  const { heading, title } = drawingTitle(options.title, 'Line current triangles — before and after', before.board.name);
   const change = options.changeName ?? 'the correction';
   const ly = height - 22;
   return (
     `<svg xmlns="http://www.w3.org/2000/svg"${attrs({ viewBox: `0 0 ${coord(width)} ${coord(height)}`, width, height, 'font-family': 'DejaVu Sans, Liberation Sans, Arial, sans-serif', role: 'img', 'data-view': 'triangles' })}>` +
-    `<title>${escapeXml(`${title}: ${before.board.name}`)}</title>` +
+    `<title>${escapeXml(title)}</title>` +
     `<rect${attrs({ x: 0, y: 0, width, height, fill: '#FFFFFF' })}/>` +
-    `<text${attrs({ x: 16, y: 22, 'font-size': 15, 'font-weight': 'bold', fill: INK })}>${escapeXml(title)}</text>` +
+    (heading === null ? '' : `<text${attrs({ x: 16, y: 22, 'font-size': 15, 'font-weight': 'bold', fill: INK })}>${escapeXml(heading)}</text>`) +
     `<text${attrs({ x: 16, y: 40, 'font-size': 11, fill: MUTED_INK })}>${escapeXml('each line in the frame of its own voltage: active part along it, lagging reactive part downward')}</text>` +
     `<text${attrs({ x: 16, y: 55, 'font-size': 11, fill: MUTED_INK })}>${escapeXml(`dashed: before · solid: after · purple: what ${change} changed`)}</text>` +
     parts.join('') +

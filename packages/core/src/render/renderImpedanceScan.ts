@@ -6,7 +6,7 @@
  */
 import type { ResonanceScan } from '../harmonics/harmonicsResult.js';
 import { GRID_COLOUR, INK, MUTED_INK } from './palette.js';
-import { attrs, coord, escapeXml, sig3 } from './svgText.js';
+import { attrs, coord, drawingTitle, escapeXml, sig3 } from './svgText.js';
 import { checkObjectArgument } from '../_internal/argumentChecks.js';
 
 export const SCAN_LAYOUT = { width: 640, plotTop: 52, plotHeight: 230, left: 62, right: 20 } as const;
@@ -33,10 +33,13 @@ function tickStep(span: number, count: number): number {
 /**
  * Renders the scan: one curve per kvar level of the bank (up to seven; states with the same kvar on
  * coincide), the highest |Z| over the terminal pairs.
+ * @param title the heading; '' for none (the <title> keeps the default words)
  * @returns SVG text; the plot area carries `data-x-range` and `data-y-range` (order and ohm at its edges)
  */
-export function renderImpedanceScan(scan: ResonanceScan, title = 'Impedance seen by harmonic currents, by bank state'): string {
+export function renderImpedanceScan(scan: ResonanceScan, title?: string): string {
   checkObjectArgument(scan, 'scan', "a resonance scan (a harmonics report's scan)", ['combinations', 'orders']);
+  // '' draws no heading; the <title> keeps the default words (the scan names no board to stand alone).
+  const named = drawingTitle(title, 'Impedance seen by harmonic currents, by bank state', null, 'title');
   const { width, plotTop, plotHeight, left, right } = SCAN_LAYOUT;
   // States with equal kvar on give the same curve (equal steps): draw each level once.
   const states = scan.combinations.filter((c, k, all) => all.findIndex((o) => Math.abs(o.capacitorKvar - c.capacitorKvar) < 1e-6) === k).slice(0, SERIES_STYLE.length);
@@ -83,9 +86,9 @@ export function renderImpedanceScan(scan: ResonanceScan, title = 'Impedance seen
   if (more > 0) parts.push(`<text${attrs({ x: left, y: height - 6, 'font-size': 10, fill: MUTED_INK })}>${escapeXml(`${more} state(s) with other kvar levels not drawn (see the table)`)}</text>`);
   return (
     `<svg xmlns="http://www.w3.org/2000/svg"${attrs({ viewBox: `0 0 ${width} ${coord(height)}`, width, height, 'font-family': 'DejaVu Sans, Liberation Sans, Arial, sans-serif', role: 'img', 'data-view': 'impedance-scan' })}>` +
-    `<title>${escapeXml(title)}</title>` +
+    `<title>${escapeXml(named.title)}</title>` +
     `<rect${attrs({ x: 0, y: 0, width, height, fill: '#FFFFFF' })}/>` +
-    `<text${attrs({ x: 16, y: 22, 'font-size': 15, 'font-weight': 'bold', fill: INK })}>${escapeXml(title)}</text>` +
+    (named.heading === null ? '' : `<text${attrs({ x: 16, y: 22, 'font-size': 15, 'font-weight': 'bold', fill: INK })}>${escapeXml(named.heading)}</text>`) +
     `<text${attrs({ x: 16, y: 40, 'font-size': 11, fill: MUTED_INK })}>${escapeXml('largest |Z| between two terminals (ohm) by harmonic order; dashed: orders on the board')}</text>` +
     parts.join('') +
     `</svg>\n`

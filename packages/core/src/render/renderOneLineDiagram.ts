@@ -9,13 +9,13 @@ import { percentBesideBand } from '../board/conventions/voltageBesideBand.js';
 import type { InstallationResult, FeederReading } from '../analysis/installationResult.js';
 import { layOutOneLine, SUPPLY_HALF_HEIGHT } from './oneLineLayout.js';
 import { INK, MUTED_INK, GRID_COLOUR } from './palette.js';
-import { attrs, coord, escapeXml, fixed, sig3 } from './svgText.js';
+import { attrs, coord, drawingTitle, escapeXml, fixed, sig3 } from './svgText.js';
 import { GLYPH_WIDTH_EM } from './labelPlacement.js';
 import { assertInstallationResult } from '../analysis/resultGuards.js';
 import { checkOptionKeys } from '../_internal/argumentChecks.js';
 
 export interface OneLineDiagramOptions {
-  /** Heading inside the drawing. @defaultValue `One-line drawing of the installation` */
+  /** Heading inside the drawing; '' for none (the <title> is then the installation's name alone). @defaultValue `One-line drawing of the installation` */
   readonly title?: string;
   /** Up to two short lines beside the supply symbol. @defaultValue voltage and frequency, and the transformer's rating */
   readonly supplyLines?: readonly string[];
@@ -174,12 +174,12 @@ export function renderOneLineDiagram(result: InstallationResult, options: OneLin
   parts.push(`<line${attrs({ x1: L.margin, y1: legendTop - 12, x2: width - L.margin, y2: legendTop - 12, stroke: GRID_COLOUR, 'stroke-width': 0.8 })}/>`);
   parts.push(legend.map((line, k) => text(L.margin, legendTop + 4 + k * 14, 10.5, line, { fill: MUTED_INK, class: 'tree-text legend' })).join(''));
 
-  const title = options.title ?? 'One-line drawing of the installation';
+  const { heading, title } = drawingTitle(options.title, 'One-line drawing of the installation', result.installation.name);
   return (
     `<svg xmlns="http://www.w3.org/2000/svg"${attrs({ viewBox: `0 0 ${coord(width)} ${coord(height)}`, width, height, 'font-family': 'DejaVu Sans, Liberation Sans, Arial, sans-serif', role: 'img', 'data-view': 'one-line', 'data-arrangement': layout.arrangement })}>` +
-    `<title>${escapeXml(`${title}: ${result.installation.name}`)}</title>` +
+    `<title>${escapeXml(title)}</title>` +
     `<rect${attrs({ x: 0, y: 0, width, height, fill: '#FFFFFF' })}/>` +
-    text(16, 22, 15, fit(title, width - 32, 15), { 'font-weight': 'bold' }) +
+    (heading === null ? '' : text(16, 22, 15, fit(heading, width - 32, 15), { 'font-weight': 'bold' })) +
     text(16, 40, 11, fit(`${result.installation.name} · ${result.installation.boardCount} board${result.installation.boardCount === 1 ? '' : 's'}`, width - 32, 11), { fill: MUTED_INK }) +
     parts.join('') +
     `</svg>\n`

@@ -10,7 +10,7 @@ import type { Phasor } from '../complex.js';
 import { GRID_COLOUR, INK, MUTED_INK, NEUTRAL_COLOUR, PHASE_COLOUR } from './palette.js';
 import { phasorScale, type PhasorScale } from './phasorScale.js';
 import { arrow, scaleBar, subscripted, type Point } from './svgShapes.js';
-import { attrs, coord, escapeXml, sig3 } from './svgText.js';
+import { attrs, coord, drawingTitle, escapeXml, sig3 } from './svgText.js';
 import { placeLabels, textBox, type Box, type LabelRequest } from './labelPlacement.js';
 import { assertBoardResult } from '../analysis/resultGuards.js';
 import { checkOptionKeys } from '../_internal/argumentChecks.js';
@@ -22,7 +22,10 @@ export interface PhasorDiagramOptions {
    * @defaultValue none
    */
   readonly after?: BoardResult;
-  /** Heading inside the drawing. @defaultValue `Phasors at the board` (or `… before and after` with `after`) */
+  /**
+   * Heading inside the drawing; '' for none (the <title> is then the board's name alone).
+   * @defaultValue `Phasors at the board` (or `… before and after` with `after`)
+   */
   readonly title?: string;
 }
 
@@ -173,14 +176,14 @@ export function renderPhasorDiagram(result: BoardResult, options: PhasorDiagramO
     return `<text${attrs({ class: 'phasor-label', x: p.textAt.x, y: p.textAt.y, 'font-size': FONT, fill: d.colour, 'font-weight': d.state === 'before' ? 'normal' : 'bold', 'data-phase': d.phase, 'data-quantity': d.kind })}>${subscripted(d.label!.main, d.label!.sub, d.label!.rest)}</text>`;
   });
 
-  const title = options.title ?? (after ? 'Phasors at the board — before and after' : 'Phasors at the board');
+  const { heading, title } = drawingTitle(options.title, after ? 'Phasors at the board — before and after' : 'Phasors at the board', result.board.name);
   const name = result.board.name.length > 70 ? `${result.board.name.slice(0, 69)}…` : result.board.name;
   const threeWire = result.neutral === null;
   return (
     `<svg xmlns="http://www.w3.org/2000/svg"${attrs({ viewBox: `0 0 ${coord(width)} ${coord(height)}`, width, height, 'font-family': 'DejaVu Sans, Liberation Sans, Arial, sans-serif', role: 'img', 'data-view': 'phasors' })}>` +
-    `<title>${escapeXml(`${title}: ${result.board.name}`)}</title>` +
+    `<title>${escapeXml(title)}</title>` +
     `<rect${attrs({ x: 0, y: 0, width, height, fill: '#FFFFFF' })}/>` +
-    `<text${attrs({ x: 16, y: 22, 'font-size': 15, 'font-weight': 'bold', fill: INK })}>${escapeXml(title)}</text>` +
+    (heading === null ? '' : `<text${attrs({ x: 16, y: 22, 'font-size': 15, 'font-weight': 'bold', fill: INK })}>${escapeXml(heading)}</text>`) +
     `<text${attrs({ x: 16, y: 40, 'font-size': 11, fill: MUTED_INK })}>${escapeXml(`${name} · 0° = phase-${labelIn(result.conventions.phaseNames, 'A')} source voltage, anticlockwise`)}</text>` +
     g.svg +
     arrows.join('') +

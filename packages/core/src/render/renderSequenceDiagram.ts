@@ -12,7 +12,7 @@ import type { SequenceSet } from '../analysis/symmetricalComponents.js';
 import { GRID_COLOUR, INK, MUTED_INK, PHASE_COLOUR } from './palette.js';
 import { phasorScale, type PhasorScale } from './phasorScale.js';
 import { arrow, scaleBar, type Point } from './svgShapes.js';
-import { attrs, coord, escapeXml, sig3 } from './svgText.js';
+import { attrs, coord, drawingTitle, escapeXml, sig3 } from './svgText.js';
 import { placeLabels, textBox, type LabelRequest } from './labelPlacement.js';
 import { InputError, inputIssue } from '../errors.js';
 import { assertBoardResult } from '../analysis/resultGuards.js';
@@ -91,7 +91,7 @@ function row(set: SequenceSet<Phasor>, unit: 'V' | 'A', y0: number, sequence: 'A
  * @throws {InputError} for a board without sequence components (split-phase or single-phase)
  */
 export interface SequenceDiagramOptions {
-  /** Heading inside the drawing. @defaultValue 'Symmetrical components' */
+  /** Heading inside the drawing; '' for none (the <title> is then the board's name alone). @defaultValue 'Symmetrical components' */
   readonly title?: string;
 }
 
@@ -102,12 +102,12 @@ export function renderSequenceDiagram(result: BoardResult, options: SequenceDiag
     throw new InputError([inputIssue('not-three-phase', 'supply.system', 'a three-phase board (sequence components exist only there)', result.board.system)], 'no sequence view');
   const { width, rowHeight, top } = SEQUENCE_LAYOUT;
   const height = top + 2 * rowHeight + 10;
-  const title = options.title ?? 'Symmetrical components';
+  const { heading, title } = drawingTitle(options.title, 'Symmetrical components', result.board.name);
   return (
     `<svg xmlns="http://www.w3.org/2000/svg"${attrs({ viewBox: `0 0 ${coord(width)} ${coord(height)}`, width, height, 'font-family': 'DejaVu Sans, Liberation Sans, Arial, sans-serif', role: 'img', 'data-view': 'sequence' })}>` +
-    `<title>${escapeXml(`${title}: ${result.board.name}`)}</title>` +
+    `<title>${escapeXml(title)}</title>` +
     `<rect${attrs({ x: 0, y: 0, width, height, fill: '#FFFFFF' })}/>` +
-    `<text${attrs({ x: 16, y: 22, 'font-size': 15, 'font-weight': 'bold', fill: INK })}>${escapeXml(title)}</text>` +
+    (heading === null ? '' : `<text${attrs({ x: 16, y: 22, 'font-size': 15, 'font-weight': 'bold', fill: INK })}>${escapeXml(heading)}</text>`) +
     `<text${attrs({ x: 16, y: 40, 'font-size': 11, fill: MUTED_INK })}>${escapeXml(`${result.board.name} · phase-${result.conventions.phaseLabels.A} components, sequence ${labelIn(result.conventions.phaseNames, result.board.sequence)}; each row on one scale`)}</text>` +
     row(result.sequences.voltage, 'V', top, result.board.sequence, 'Voltages', result.conventions.phaseLabels) +
     row(result.sequences.current, 'A', top + rowHeight, result.board.sequence, 'Line currents', result.conventions.phaseLabels) +

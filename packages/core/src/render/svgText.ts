@@ -2,6 +2,7 @@
  * Small helpers for writing SVG and HTML as text: escaping and number
  * formatting that gives the same characters on every run and platform.
  */
+import { argumentIssueError } from '../_internal/argumentChecks.js';
 
 /**
  * Control characters XML 1.0 forbids (and that a terminal would act on) are shown as escapes (\u{1B});
@@ -37,6 +38,25 @@ export function sig3(x: number): string {
   if (a >= 10) return fixed(x, 1);
   if (a >= 1) return fixed(x, 2);
   return fixed(x, 3);
+}
+
+/** A drawing's heading (null: none drawn) and the text of its <title> element. */
+export interface DrawingTitle {
+  readonly heading: string | null;
+  readonly title: string;
+}
+
+/**
+ * The heading a caller gives a drawing, the default where it gives none, and the <title> it makes with the
+ * thing drawn: "heading: subject". An empty or blank heading means none: no heading line, and the <title> is
+ * the subject alone (or the default words, for a drawing with no subject), never ": subject".
+ * @throws {InputError} naming `argument` for a heading that is not text
+ */
+export function drawingTitle(given: unknown, fallback: string, subject: string | null, argument = 'options.title'): DrawingTitle {
+  if (given === undefined) return { heading: fallback, title: subject === null ? fallback : `${fallback}: ${subject}` };
+  if (typeof given !== 'string') throw argumentIssueError(argument, "the drawing's heading as text ('' for no heading), or nothing for the default", given);
+  if (given.trim() === '') return { heading: null, title: subject ?? fallback };
+  return { heading: given, title: subject === null ? given : `${given}: ${subject}` };
 }
 
 /** Attribute list from an object, keys in the given order, values escaped. */

@@ -6,12 +6,17 @@
  * star, grounding and bonding. Every region-specific sentence of a board report is here.
  */
 import type { SystemKind } from '../boardSchema.js';
+import type { Board } from '../boardModel.js';
 import { REGIONS, type Region } from './region.js';
 import { checkWordArgument } from '../../_internal/argumentChecks.js';
 import { SYSTEMS } from '../boardRanges.js';
 
 export interface RegionWords {
-  /** The point the source's phase voltages are measured from: "the source star point", "the transformer center tap". */
+  /**
+   * The point the source's phase voltages are measured from: "the source star point", "the transformer center tap"
+   * (a split-phase supply the file gives as a transformer), "the source center tap" (one it gives by its voltage or
+   * impedance alone: the file names no winding, so neither do the words).
+   */
   readonly sourceNeutralPoint: string;
   /** The neutral conductor, first mention: "neutral", "grounded conductor (neutral)". */
   readonly neutralConductor: string;
@@ -49,13 +54,33 @@ export type StarWord = 'star' | 'wye';
 /** The region's word for a star connection, where nothing else of the region's wording is needed. */
 export const starWordOf = (region: Region): StarWord => regionWords(region, 'three-phase-4wire').starWord;
 
-export function regionWords(region: Region, system: SystemKind): RegionWords {
+/** What the file gives as the supply, for the words naming its neutral point: a transformer, or a source (ideal, or an impedance). */
+export const SOURCE_MODELS = ['transformer', 'source'] as const;
+export type SourceModel = (typeof SOURCE_MODELS)[number];
+
+/**
+ * Whether the file gives a board's supply as a transformer (supply.transformer, or single-phase units rated in kVA);
+ * a sub-board is fed by its installation's supply.
+ */
+export function sourceModelOf(board: Pick<Board, 'transformerKVA' | 'sourceUnits' | 'installation'>): SourceModel {
+  const supply = board.installation?.installation.main ?? board;
+  return supply.transformerKVA !== null || (supply.sourceUnits?.length ?? 0) > 0 ? 'transformer' : 'source';
+}
+
+/**
+ * @param source what the file gives as the supply (sourceModelOf); 'source' by default, the words that hold for
+ *   any supply ("the source center tap")
+ */
+export function regionWords(region: Region, system: SystemKind, source: SourceModel = 'source'): RegionWords {
   checkWordArgument(region, 'region', REGIONS);
   checkWordArgument(system, 'system', SYSTEMS);
+  checkWordArgument(source, 'source', SOURCE_MODELS);
   const split = system === 'split-phase';
+  // A split-phase supply's neutral is the middle of its winding: a center tap, never a star point.
+  const winding = source === 'transformer' ? 'the transformer' : 'the source';
   if (region === 'north-america')
     return {
-      sourceNeutralPoint: split ? 'the transformer center tap' : 'the source wye point',
+      sourceNeutralPoint: split ? `${winding} center tap` : 'the source wye point',
       neutralConductor: 'grounded conductor (neutral)',
       phasesWord: split ? 'leg' : 'phases',
       starWord: 'wye',
@@ -63,5 +88,5 @@ export function regionWords(region: Region, system: SystemKind): RegionWords {
       openNeutralCautions: northAmericanCautions(UP_TO_LINE_TO_LINE(split ? 'leg' : 'phases')),
       openNeutralCautionsReaching: northAmericanCautions,
     };
-  return { sourceNeutralPoint: 'the source star point', neutralConductor: 'neutral', phasesWord: 'phases', starWord: 'star', groundWord: 'earth', openNeutralCautions: IEC_OPEN_NEUTRAL_CAUTIONS, openNeutralCautionsReaching: iecOpenNeutralCautions };
+  return { sourceNeutralPoint: split ? `${winding} centre tap` : 'the source star point', neutralConductor: 'neutral', phasesWord: 'phases', starWord: 'star', groundWord: 'earth', openNeutralCautions: IEC_OPEN_NEUTRAL_CAUTIONS, openNeutralCautionsReaching: iecOpenNeutralCautions };
 }

@@ -34,6 +34,9 @@ const SYSTEM_WORDS: Readonly<Record<string, string>> = {
 
 /** A reading's PF as the text tables print it (export, no tag at 1.000 with 0.00 kvar); — for none. */
 const pfWords = (r: Pick<PowerReading, 'pf' | 'sense' | 'kVA' | 'kW' | 'kvar'>): string => powerFactorText(r, '—');
+/** Where the board's phase voltages are measured from, as the region and the file's supply name it (the transformer's center tap, or the source's). */
+const sourcePointWords = (result: BoardResult): string =>
+  regionWords(result.conventions.region, result.board.system as SystemKind, result.board.suppliedByTransformer ? 'transformer' : 'source').sourceNeutralPoint;
 /** A current's angle, where the current prints as more than 0.0 A (a round-off current's angle is noise), as `trivar solve` leaves it. */
 const currentAngle = (i: { magnitude: number; angleDeg: number }): string => (fixed(i.magnitude, 1) === '0.0' ? '' : fixed(i.angleDeg, 1));
 const orDash = (x: number | null | undefined, digits: number): string => (x === null || x === undefined ? '—' : fixed(x, digits));
@@ -269,7 +272,7 @@ export function resultBlocks(result: BoardResult, options: ResultBlockOptions = 
       { label: '% rating', align: 'right' },
     ],
     rows,
-    note: `${result.neutral ? `Phase voltages to the neutral bar; the N row gives the neutral bar voltage to ${regionWords(result.conventions.region, result.board.system as SystemKind).sourceNeutralPoint} and the neutral current.` : 'Phase voltages to the centroid of the line voltages (no neutral).'} Line-to-line: ${result.lineToLine.map((l) => `${label(l.pair)} ${voltageBesideBand(bandLimits(band), { volts: l.voltage.magnitude, percent: l.voltagePercent }).volts} V`).join(', ')}.`,
+    note: `${result.neutral ? `Phase voltages to the neutral bar; the N row gives the neutral bar voltage to ${sourcePointWords(result)} and the neutral current.` : 'Phase voltages to the centroid of the line voltages (no neutral).'} Line-to-line: ${result.lineToLine.map((l) => `${label(l.pair)} ${voltageBesideBand(bandLimits(band), { volts: l.voltage.magnitude, percent: l.voltagePercent }).volts} V`).join(', ')}.`,
   });
   blocks.push(voltageLimitsTable(result, band));
   blocks.push({ kind: 'figure', name: `${prefix}phasors`, caption: `Phasor diagram of ${result.board.name} as solved`, svg: renderPhasorDiagram(result) });
@@ -324,7 +327,7 @@ export function openNeutralSection(result: BoardResult): ReportSection | null {
     id: 'open-neutral',
     title: 'If the neutral conductor broke',
     blocks: [
-      { kind: 'paragraph', text: `The neutral bar would float to ${fixed(on.barVoltage?.magnitude ?? 0, 1)} V from ${regionWords(result.conventions.region, result.board.system as SystemKind).sourceNeutralPoint}.` },
+      { kind: 'paragraph', text: `The neutral bar would float to ${fixed(on.barVoltage?.magnitude ?? 0, 1)} V from ${sourcePointWords(result)}.` },
       {
         kind: 'table',
         caption: 'Voltage each line-to-neutral circuit would see',
