@@ -11,7 +11,7 @@ import { checkWordArgument } from '../../_internal/argumentChecks.js';
 import { SYSTEMS } from '../boardRanges.js';
 
 export interface RegionWords {
-  /** The point the source's phase voltages are measured from: "the source star point", "the transformer center tap". */
+  /** The point the source's phase voltages are measured from: "the source star point", "the transformer center tap", a single-phase source's neutral terminal. */
   readonly sourceNeutralPoint: string;
   /** The neutral conductor, first mention: "neutral", "grounded conductor (neutral)". */
   readonly neutralConductor: string;
@@ -53,9 +53,11 @@ export function regionWords(region: Region, system: SystemKind): RegionWords {
   checkWordArgument(region, 'region', REGIONS);
   checkWordArgument(system, 'system', SYSTEMS);
   const split = system === 'split-phase';
+  // A single-phase 2-wire source has one winding and no star point: its voltage is taken from its neutral end.
+  const singleNeutralEnd = system === 'single-phase' ? "the source's neutral terminal" : null;
   if (region === 'north-america')
     return {
-      sourceNeutralPoint: split ? 'the transformer center tap' : 'the source wye point',
+      sourceNeutralPoint: singleNeutralEnd ?? (split ? 'the transformer center tap' : 'the source wye point'),
       neutralConductor: 'grounded conductor (neutral)',
       phasesWord: split ? 'leg' : 'phases',
       starWord: 'wye',
@@ -63,5 +65,5 @@ export function regionWords(region: Region, system: SystemKind): RegionWords {
       openNeutralCautions: northAmericanCautions(UP_TO_LINE_TO_LINE(split ? 'leg' : 'phases')),
       openNeutralCautionsReaching: northAmericanCautions,
     };
-  return { sourceNeutralPoint: 'the source star point', neutralConductor: 'neutral', phasesWord: 'phases', starWord: 'star', groundWord: 'earth', openNeutralCautions: IEC_OPEN_NEUTRAL_CAUTIONS, openNeutralCautionsReaching: iecOpenNeutralCautions };
+  return { sourceNeutralPoint: singleNeutralEnd ?? 'the source star point', neutralConductor: 'neutral', phasesWord: 'phases', starWord: 'star', groundWord: 'earth', openNeutralCautions: IEC_OPEN_NEUTRAL_CAUTIONS, openNeutralCautionsReaching: iecOpenNeutralCautions };
 }
