@@ -85,4 +85,28 @@ describe('installation report: each board\'s power balance', () => {
     expect(floor4).toContain('- **From Floor 3:** 15.504 kW, 5.039 kvar');
     expect(floor4.slice(0, floor4.indexOf('## ', 5))).not.toContain('Boards beyond');
   });
+
+  it('a sub-board that only exports sends its power to its parent, in solve\'s words, and still adds up', () => {
+    // A smallholding on a 120/240 V service: the farmhouse panel, and a barn roof array fed back through its own feeder.
+    const spec = parseInstallation({
+      name: 'Hillcrest smallholding',
+      supply: { voltage: '120/240', frequencyHz: 60, transformer: { kVA: 50, impedancePercent: 2.2, xOverR: 1.8 } },
+      boards: [
+        { name: 'Farmhouse panel', loads: [{ name: 'Stove', connection: 'L1-L2', kW: 8, model: 'constant-impedance' }, { name: 'Pantry freezer', connection: 'L1-N', kW: 1.8, pf: 0.95 }] },
+        { name: 'Barn array', fedFrom: 'Farmhouse panel', feeder: { lengthFt: 80, line: { awg: '10' }, neutral: { awg: '10' } }, loads: [{ name: 'Roof inverter', connection: 'L1-L2', kW: -7.6, pf: 1 }] },
+      ],
+    });
+    const result = solveInstallation(spec);
+    const doc = buildInstallationReport({ spec, result });
+    const barn = facts(doc.sections.find((s) => s.title === 'Board: Barn array')!);
+    const loads = kW(barn.get('Loads on this board (net: consumption minus generation)'));
+    const loss = kW(barn.get('Losses in its feeder (from Farmhouse panel)'));
+    const exported = /^([\d.]+) kW exported/.exec(barn.get('To Farmhouse panel') ?? '')![1]!;
+    expect(loads).toBe(-7.6);
+    expect(Math.abs(loads + loss + Number(exported))).toBeLessThanOrEqual(0.0015);
+    expect(barn.has('From Farmhouse panel')).toBe(false);
+    // The farmhouse's boards beyond are the array's export, negative in the load convention.
+    const house = facts(doc.sections.find((s) => s.title === 'Board: Farmhouse panel')!);
+    expect(kW(house.get('Boards beyond (the boards it feeds, with their feeders)'))).toBe(-Number(exported));
+  });
 });

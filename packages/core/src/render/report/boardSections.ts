@@ -13,7 +13,7 @@ function impedanceWords(z: NonNullable<BoardBaseSpec['supply']['impedance']>, na
 }
 import type { BoardResult, LoadReading, PowerReading } from '../../analysis/boardResult.js';
 import { fixed } from '../svgText.js';
-import { assumedPfNote, powerFactorText, signedPfText } from '../powerFactorText.js';
+import { assumedPfNote, isExportKW, powerFactorText, signedPfText } from '../powerFactorText.js';
 import { OPEN_NEUTRAL_BAND, WARNING_THRESHOLDS } from '../../analysis/boardWarnings.js';
 import { OPEN_NEUTRAL_COLUMN_KEY, OPEN_NEUTRAL_METHOD } from '../../analysis/openNeutralWording.js';
 import { labelIn, type PhaseNaming } from '../../board/conventions/phaseNames.js';
@@ -247,12 +247,25 @@ function powerBalanceFacts(result: BoardResult): [string, string][] {
     : result.board.idealSource
       ? ['Losses in the feeder (the source is ideal)', `${fixed(l.totalKW, 3)} kW (${parts})`]
       : ['Losses in source and feeder', `${fixed(l.totalKW, 3)} kW (source ${fixed(l.sourceKW, 3)}, ${parts})`];
+  // A board with a generating circuit: its loads are net of it, as solve labels them.
+  const net = result.loads.some((load) => isExportKW(load.kW)) ? ' (net: consumption minus generation)' : '';
+  // Power flowing back is said as solve says it: to the board feeding it (or the supply), exported.
+  const inflow: [string, string] = fixed(result.source.kW, 3).startsWith('-')
+    ? [feeding ? `To ${feeding}` : 'To the source', `${fixed(-result.source.kW, 3)} kW exported${varsWords(result.source.kvar)}`]
+    : [feeding ? `From ${feeding}` : 'From the source', `${fixed(result.source.kW, 3)} kW, ${fixed(result.source.kvar, 3)} kvar`];
   return [
-    [feedsOthers || feeding ? 'Loads on this board' : 'Loads', `${fixed(result.totals.kW, 3)} kW, ${fixed(result.totals.kvar, 3)} kvar`],
+    [`${feedsOthers || feeding ? 'Loads on this board' : 'Loads'}${net}`, `${fixed(result.totals.kW, 3)} kW, ${fixed(result.totals.kvar, 3)} kvar`],
     losses,
     ...(feedsOthers ? [['Boards beyond (the boards it feeds, with their feeders)', `${fixed(beyondKW, 3)} kW, ${fixed(beyondKvar, 3)} kvar`] as [string, string]] : []),
-    [feeding ? `From ${feeding}` : 'From the source', `${fixed(result.source.kW, 3)} kW, ${fixed(result.source.kvar, 3)} kvar`],
+    inflow,
   ];
+}
+
+/** The vars of an exporting board in words, load convention (+kvar absorbed), as solve's balance words them. */
+function varsWords(kvar: number): string {
+  const shown = fixed(Math.abs(kvar), 3);
+  if (Number(shown) === 0) return ', with no reactive power';
+  return `; the board ${kvar > 0 ? 'absorbs' : 'supplies'} ${shown} kvar`;
 }
 
 /** The solved figures of a board as report blocks: the V/I table, the limits, the phasors, power factors and unbalance, warnings. */
