@@ -109,7 +109,7 @@ export { unbalanceFactorFromLineMagnitudes, motorDeratingFactor } from './analys
 export type { BoardPowerDefinitions, ApparentPowerReading } from './analysis/powerDefinitions.js';
 export { boardPowerDefinitions } from './analysis/powerDefinitions.js';
 export { studyOpenNeutral } from './analysis/studyOpenNeutral.js';
-export { OPEN_NEUTRAL_LIMITS, OPEN_NEUTRAL_METHOD } from './analysis/openNeutralWording.js';
+export { OPEN_NEUTRAL_LIMITS, OPEN_NEUTRAL_METHOD, OPEN_NEUTRAL_COLUMN_KEY } from './analysis/openNeutralWording.js';
 export type { NeutralBreakPath, FollowNeutralBreakOptions } from './analysis/followNeutralBreak.js';
 export { followNeutralBreak, withNeutralFault } from './analysis/followNeutralBreak.js';
 export type { NewtonOptions, NewtonOutcome } from './network/solveNetworkByNewton.js';

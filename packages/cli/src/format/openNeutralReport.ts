@@ -1,5 +1,5 @@
 /** The broken-neutral study as a section of `trivar solve`. */
-import { OPEN_NEUTRAL_BAND, OPEN_NEUTRAL_METHOD, voltageBesideBand, type OpenNeutralLoadReading, type OpenNeutralStudy } from '@trivar/core';
+import { OPEN_NEUTRAL_BAND, OPEN_NEUTRAL_COLUMN_KEY, OPEN_NEUTRAL_METHOD, voltageBesideBand, type OpenNeutralLoadReading, type OpenNeutralStudy } from '@trivar/core';
 import { fixed, renderTableWithin } from './textTable.js';
 import { REPORT_WIDTH, wrapText } from './wrapText.js';
 
@@ -33,10 +33,10 @@ export function openNeutralBlock(study: OpenNeutralStudy, label: (phase: string)
     rows,
   );
   const key = [
-    study.reachedFromIntact ? 'V: the state the board reaches' : 'V: the worst state found',
-    ...(impedance ? ['V if Z: every load as a constant impedance'] : []),
-    ...(other ? ['V alt: another solution of the same equations'] : []),
-    ...(study.loads.some((l) => l.belowLowVoltageRule) ? ['*: below the low-voltage rule, taken as an impedance'] : []),
+    study.reachedFromIntact ? OPEN_NEUTRAL_COLUMN_KEY.reached : OPEN_NEUTRAL_COLUMN_KEY.worstFound,
+    ...(impedance ? [OPEN_NEUTRAL_COLUMN_KEY.impedanceModel] : []),
+    ...(other ? [OPEN_NEUTRAL_COLUMN_KEY.otherState] : []),
+    ...(study.loads.some((l) => l.belowLowVoltageRule) ? [OPEN_NEUTRAL_COLUMN_KEY.belowLowVoltageRule] : []),
   ];
   const bar = study.barVoltage ? `  neutral bar floats to ${fixed(study.barVoltage.magnitude, 1)} V from ${sourceNeutralPoint}` : '';
   return [

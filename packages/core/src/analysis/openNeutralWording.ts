@@ -140,3 +140,15 @@ export function openNeutralCautions(words: Pick<RegionWords, 'openNeutralCaution
 
 export const OPEN_NEUTRAL_METHOD =
   'Found by following the board from intact to open: a resistance in series with the neutral conductor is raised step by step, as a failing joint would, and the state of the board is tracked.';
+
+/**
+ * What each voltage column of the broken-neutral study means, one wording for `trivar solve` and the
+ * report, so the two explain the same figures the same way.
+ */
+export const OPEN_NEUTRAL_COLUMN_KEY = {
+  reached: 'V: the state the board reaches',
+  worstFound: 'V: the worst state found',
+  impedanceModel: 'V if Z: every load as a constant impedance',
+  otherState: 'V alt: another solution of the same equations',
+  belowLowVoltageRule: '*: below the low-voltage rule, taken as an impedance',
+} as const;

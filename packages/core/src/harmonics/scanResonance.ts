@@ -233,6 +233,6 @@ export function scanResonance(fundamental: NetworkSolution, model: HarmonicModel
     checkedOrders: options.checkedOrders,
     checkedOrdersFrom: options.checkedOrdersFrom,
     combinations,
-    basis: 'linear loads at their solved fundamental admittance (every bank step on), scaled to each order; non-linear loads as ideal current sources (open circuits); supply EMFs shorted',
+    basis: 'linear loads at their solved fundamental admittance (every bank step on), scaled to each order; non-linear loads as ideal current sources (open circuits); every supply EMF shorted',
   };
 }

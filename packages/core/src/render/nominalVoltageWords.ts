@@ -28,10 +28,13 @@ export function nominalVoltageWords(board: BoardResult['board']): string {
  */
 export function sourceVoltageWords(board: BoardResult['board'], unbalancedEmf: boolean, label: PhaseLabel = (p) => p): string {
   checkBoardFigures(board);
-  if (board.sourceEmf) return `as entered per phase: ${enteredEmfWords(board.sourceEmf, label)}`;
-  if (unbalancedEmf) return 'unbalanced, as entered per phase';
+  // A single-phase source has one voltage: nothing to be balanced or entered per phase.
+  const single = board.system === 'single-phase';
+  if (board.sourceEmf) return `as entered${single ? '' : ' per phase'}: ${enteredEmfWords(board.sourceEmf, label)}`;
+  if (unbalancedEmf && !single) return 'unbalanced, as entered per phase';
   const s = board.sourceNominal;
-  if (!s) return 'balanced at nominal voltage';
+  if (!s) return single ? 'at nominal voltage' : 'balanced at nominal voltage';
+  if (single) return `${heldWords(s)} (the figure given, which loads are rated at; limits are judged at the nominal)`;
   return `balanced, ${heldWords(s)} (the figures given, which loads are rated at; limits are judged at the nominal pair, not exactly √3 apart)`;
 }
 

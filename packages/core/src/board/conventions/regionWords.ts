@@ -15,7 +15,7 @@ export interface RegionWords {
   /**
    * The point the source's phase voltages are measured from: "the source star point", "the transformer center tap"
    * (a split-phase supply the file gives as a transformer), "the source center tap" (one it gives by its voltage or
-   * impedance alone: the file names no winding, so neither do the words).
+   * impedance alone: the file names no winding, so neither do the words), a single-phase source's neutral terminal.
    */
   readonly sourceNeutralPoint: string;
   /** The neutral conductor, first mention: "neutral", "grounded conductor (neutral)". */
@@ -78,9 +78,11 @@ export function regionWords(region: Region, system: SystemKind, source: SourceMo
   const split = system === 'split-phase';
   // A split-phase supply's neutral is the middle of its winding: a center tap, never a star point.
   const winding = source === 'transformer' ? 'the transformer' : 'the source';
+  // A single-phase 2-wire source has one winding and no star point: its voltage is taken from its neutral end.
+  const singleNeutralEnd = system === 'single-phase' ? "the source's neutral terminal" : null;
   if (region === 'north-america')
     return {
-      sourceNeutralPoint: split ? `${winding} center tap` : 'the source wye point',
+      sourceNeutralPoint: singleNeutralEnd ?? (split ? `${winding} center tap` : 'the source wye point'),
       neutralConductor: 'grounded conductor (neutral)',
       phasesWord: split ? 'leg' : 'phases',
       starWord: 'wye',
@@ -88,5 +90,5 @@ export function regionWords(region: Region, system: SystemKind, source: SourceMo
       openNeutralCautions: northAmericanCautions(UP_TO_LINE_TO_LINE(split ? 'leg' : 'phases')),
       openNeutralCautionsReaching: northAmericanCautions,
     };
-  return { sourceNeutralPoint: split ? `${winding} centre tap` : 'the source star point', neutralConductor: 'neutral', phasesWord: 'phases', starWord: 'star', groundWord: 'earth', openNeutralCautions: IEC_OPEN_NEUTRAL_CAUTIONS, openNeutralCautionsReaching: iecOpenNeutralCautions };
+  return { sourceNeutralPoint: singleNeutralEnd ?? (split ? `${winding} centre tap` : 'the source star point'), neutralConductor: 'neutral', phasesWord: 'phases', starWord: 'star', groundWord: 'earth', openNeutralCautions: IEC_OPEN_NEUTRAL_CAUTIONS, openNeutralCautionsReaching: iecOpenNeutralCautions };
 }

@@ -13,8 +13,9 @@ function impedanceWords(z: NonNullable<BoardBaseSpec['supply']['impedance']>, na
 }
 import type { BoardResult, LoadReading, PowerReading } from '../../analysis/boardResult.js';
 import { fixed } from '../svgText.js';
-import { assumedPfNote, powerFactorText, signedPfText } from '../powerFactorText.js';
+import { assumedPfNote, isExportKW, powerFactorText, signedPfText } from '../powerFactorText.js';
 import { OPEN_NEUTRAL_BAND, WARNING_THRESHOLDS } from '../../analysis/boardWarnings.js';
+import { OPEN_NEUTRAL_COLUMN_KEY, OPEN_NEUTRAL_METHOD } from '../../analysis/openNeutralWording.js';
 import { labelIn, type PhaseNaming } from '../../board/conventions/phaseNames.js';
 import { bandVolts, bandVoltsWords, bandWords, customLimits } from '../../board/conventions/voltageLimits.js';
 import { percentBesideBand, voltageBesideBand } from '../../board/conventions/voltageBesideBand.js';
@@ -31,6 +32,9 @@ const SYSTEM_WORDS: Readonly<Record<string, string>> = {
   'split-phase': 'split-phase (two lines and neutral)',
   'single-phase': 'single-phase 2-wire',
 };
+
+/** "Phase" on a three-phase board; on a split-phase or single-phase board, whose lines are not phases of a three-phase system, `other`. */
+const phaseWord = (system: string, other: string, phase = 'Phase'): string => (system.startsWith('three-phase') ? phase : other);
 
 /** A reading's PF as the text tables print it (export, no tag at 1.000 with 0.00 kvar); — for none. */
 const pfWords = (r: Pick<PowerReading, 'pf' | 'sense' | 'kVA' | 'kW' | 'kvar'>): string => powerFactorText(r, '—');
@@ -97,7 +101,7 @@ export function installationSection(spec: BoardBaseSpec, result: BoardResult): R
     ...systemFacts(result),
     ['Source', sourceWords(s, result.conventions.phaseNames)],
     ['Source voltages', sourceVoltageWords(b, s.emf !== undefined, (p) => labelIn(result.conventions.phaseNames, p))],
-    ['Feeder, each line', conductorWords(spec.feeder?.line, spec.feeder, result.conventions.phaseNames)],
+    [b.system === 'single-phase' ? 'Feeder, line' : 'Feeder, each line', conductorWords(spec.feeder?.line, spec.feeder, result.conventions.phaseNames)],
   ];
   if (result.neutral !== null) items.push(['Feeder, neutral', conductorWords(spec.feeder?.neutral, spec.feeder, result.conventions.phaseNames)]);
   if (b.neutralOpen) items.push(['Neutral', 'entered as broken (what-if)']);
@@ -136,7 +140,7 @@ export function scheduleTable(loads: BoardBaseSpec['loads'], result: BoardResult
     columns: [
       { label: 'No.' },
       { label: 'Circuit' },
-      { label: 'Phase' },
+      { label: phaseWord(result.board.system, 'Connection') },
       { label: 'Breaker A, poles', align: 'right' },
       { label: 'Model' },
       { label: 'kW', align: 'right' },
@@ -227,6 +231,46 @@ export interface ResultBlockOptions {
   readonly band?: VoltageBand;
 }
 
+/**
+ * What the board draws and where it goes, in the words of `trivar solve`'s power balance, so the figures add up:
+ * loads + losses + boards beyond = what comes in. A sub-board's losses are its own feeder's and what comes in is
+ * what enters that feeder at the board feeding it; the main board's come from the source, its windings included.
+ */
+function powerBalanceFacts(result: BoardResult): [string, string][] {
+  const l = result.losses;
+  const feeding = result.incomer?.fedFrom ?? null;
+  // What the board passes on to the boards it feeds (their loads and feeders), as solve's balance works it out.
+  const beyondKW = result.source.kW - result.totals.kW - l.totalKW;
+  const beyondKvar = result.source.kvar - result.totals.kvar - l.totalKvar;
+  const feedsOthers = Math.abs(beyondKW) + Math.abs(beyondKvar) > 1e-6 * Math.max(1, Math.abs(result.source.kW) + Math.abs(result.source.kvar));
+  // The parts as solve lists them; no neutral part on a board without one.
+  const parts = `line conductors ${fixed(l.lineFeederKW, 3)}${result.neutral ? `, neutral ${fixed(l.neutralKW, 3)}` : ''}`;
+  const losses: [string, string] = feeding
+    ? [`Losses in its feeder (from ${feeding})`, `${fixed(l.totalKW, 3)} kW (${parts})`]
+    : result.board.idealSource
+      ? ['Losses in the feeder (the source is ideal)', `${fixed(l.totalKW, 3)} kW (${parts})`]
+      : ['Losses in source and feeder', `${fixed(l.totalKW, 3)} kW (source ${fixed(l.sourceKW, 3)}, ${parts})`];
+  // A board with a generating circuit: its loads are net of it, as solve labels them.
+  const net = result.loads.some((load) => isExportKW(load.kW)) ? ' (net: consumption minus generation)' : '';
+  // Power flowing back is said as solve says it: to the board feeding it (or the supply), exported.
+  const inflow: [string, string] = fixed(result.source.kW, 3).startsWith('-')
+    ? [feeding ? `To ${feeding}` : 'To the source', `${fixed(-result.source.kW, 3)} kW exported${varsWords(result.source.kvar)}`]
+    : [feeding ? `From ${feeding}` : 'From the source', `${fixed(result.source.kW, 3)} kW, ${fixed(result.source.kvar, 3)} kvar`];
+  return [
+    [`${feedsOthers || feeding ? 'Loads on this board' : 'Loads'}${net}`, `${fixed(result.totals.kW, 3)} kW, ${fixed(result.totals.kvar, 3)} kvar`],
+    losses,
+    ...(feedsOthers ? [['Boards beyond (the boards it feeds, with their feeders)', `${fixed(beyondKW, 3)} kW, ${fixed(beyondKvar, 3)} kvar`] as [string, string]] : []),
+    inflow,
+  ];
+}
+
+/** The vars of an exporting board in words, load convention (+kvar absorbed), as solve's balance words them. */
+function varsWords(kvar: number): string {
+  const shown = fixed(Math.abs(kvar), 3);
+  if (Number(shown) === 0) return ', with no reactive power';
+  return `; the board ${kvar > 0 ? 'absorbs' : 'supplies'} ${shown} kvar`;
+}
+
 /** The solved figures of a board as report blocks: the V/I table, the limits, the phasors, power factors and unbalance, warnings. */
 export function resultBlocks(result: BoardResult, options: ResultBlockOptions = {}): ReportBlock[] {
   const prefix = options.figurePrefix ?? '';
@@ -272,15 +316,21 @@ export function resultBlocks(result: BoardResult, options: ResultBlockOptions = 
       { label: '% rating', align: 'right' },
     ],
     rows,
-    note: `${result.neutral ? `Phase voltages to the neutral bar; the N row gives the neutral bar voltage to ${sourcePointWords(result)} and the neutral current.` : 'Phase voltages to the centroid of the line voltages (no neutral).'} Line-to-line: ${result.lineToLine.map((l) => `${label(l.pair)} ${voltageBesideBand(bandLimits(band), { volts: l.voltage.magnitude, percent: l.voltagePercent }).volts} V`).join(', ')}.`,
+    // A single-phase 2-wire board has no line pair: no line-to-line sentence, as solve prints none.
+    note: [
+      result.neutral
+        ? `${phaseWord(result.board.system, result.phases.length > 1 ? "Each line's voltage" : 'Voltage of the line', 'Phase voltages')} to the neutral bar; the N row gives the neutral bar voltage to ${sourcePointWords(result)} and the neutral current.`
+        : 'Phase voltages to the centroid of the line voltages (no neutral).',
+      ...(result.lineToLine.length
+        ? [`Line-to-line: ${result.lineToLine.map((l) => `${label(l.pair)} ${voltageBesideBand(bandLimits(band), { volts: l.voltage.magnitude, percent: l.voltagePercent }).volts} V`).join(', ')}.`]
+        : []),
+    ].join(' '),
   });
   blocks.push(voltageLimitsTable(result, band));
   blocks.push({ kind: 'figure', name: `${prefix}phasors`, caption: `Phasor diagram of ${result.board.name} as solved`, svg: renderPhasorDiagram(result) });
   const pf = result.powerFactor;
   const facts: [string, string][] = [
-    ['Loads', `${fixed(result.totals.kW, 2)} kW, ${fixed(result.totals.kvar, 2)} kvar`],
-    ['Losses in source and feeder', `${fixed(result.losses.totalKW, 3)} kW`],
-    ['From the source', `${fixed(result.source.kW, 2)} kW, ${fixed(result.source.kvar, 2)} kvar`],
+    ...powerBalanceFacts(result),
     // A PF of nothing (no power flows) is "—"; an exporting board's reads "1.000 export", as in trivar solve.
     ['Power factor, vector |ΣS|', `${signedPfText(pf.vector.pf, '—')} (${fixed(pf.vector.kVA, 2)} kVA)`],
     ['Power factor, arithmetic Σ|V||I|', `${signedPfText(pf.arithmetic.pf, '—')} (${fixed(pf.arithmetic.kVA, 2)} kVA)`],
@@ -320,23 +370,61 @@ export function resultsSection(result: BoardResult, fileBank?: { readonly stepsK
   return { id: 'results', title: 'Results', blocks: [...note, ...resultBlocks(result)] };
 }
 
+/**
+ * The broken-neutral study with every finding `trivar solve` gives on it: the state reached, the same board
+ * with every load as a constant impedance, another solution of the same equations, the loads below the
+ * low-voltage rule, and the findings that say how far those voltages can be trusted, then the cautions.
+ */
 export function openNeutralSection(result: BoardResult): ReportSection | null {
   const on = result.openNeutral;
   if (!on || !on.applicable) return null;
+  const impedance = on.impedanceModel;
+  const other = on.otherStates[0];
+  const label = (p: string) => labelIn(result.conventions.phaseNames, p);
+  const point = sourcePointWords(result);
+  const bar = on.barVoltage
+    ? `${on.reachedFromIntact ? 'The neutral bar would float to' : 'In the worst state found, the neutral bar floats to'} ${fixed(on.barVoltage.magnitude, 1)} V from ${point}.`
+    : null;
+  const key = [
+    on.reachedFromIntact ? OPEN_NEUTRAL_COLUMN_KEY.reached : OPEN_NEUTRAL_COLUMN_KEY.worstFound,
+    ...(impedance ? [OPEN_NEUTRAL_COLUMN_KEY.impedanceModel] : []),
+    ...(other ? [OPEN_NEUTRAL_COLUMN_KEY.otherState] : []),
+    ...(on.loads.some((l) => l.belowLowVoltageRule) ? [OPEN_NEUTRAL_COLUMN_KEY.belowLowVoltageRule] : []),
+  ];
   return {
     id: 'open-neutral',
     title: 'If the neutral conductor broke',
     blocks: [
-      { kind: 'paragraph', text: `The neutral bar would float to ${fixed(on.barVoltage?.magnitude ?? 0, 1)} V from ${sourcePointWords(result)}.` },
+      { kind: 'paragraph', text: OPEN_NEUTRAL_METHOD },
+      ...(bar ? [{ kind: 'paragraph' as const, text: bar }] : []),
       {
         kind: 'table',
         caption: 'Voltage each line-to-neutral circuit would see',
-        columns: [{ label: 'Circuit' }, { label: 'Phase' }, { label: 'V', align: 'right' }, { label: '%nom', align: 'right' }, { label: 'Verdict' }],
-        rows: on.loads.map((l) => {
+        columns: [
+          { label: 'Circuit' },
+          { label: phaseWord(result.board.system, 'Line') },
+          { label: 'V', align: 'right' },
+          { label: '%nom', align: 'right' },
+          { label: 'Verdict' },
+          ...(impedance ? [{ label: 'V if Z', align: 'right' as const }, { label: '%nom if Z', align: 'right' as const }] : []),
+          ...(other ? [{ label: 'V alt', align: 'right' as const }, { label: '%nom alt', align: 'right' as const }] : []),
+        ],
+        rows: on.loads.map((l, k) => {
+          // The flagged figures printed with the decimals that show their side of the band, as solve prints them.
           const shown = voltageBesideBand(OPEN_NEUTRAL_BAND, { volts: l.voltage, percent: l.voltagePercent });
-          return [l.name, labelIn(result.conventions.phaseNames, l.phase), shown.volts, shown.percent, l.flag === 'over' ? 'overvoltage' : l.flag === 'under' ? 'undervoltage' : 'within limits'];
+          return [
+            l.name,
+            label(l.phase),
+            `${shown.volts}${l.belowLowVoltageRule ? '*' : ''}`,
+            shown.percent,
+            l.flag === 'over' ? 'overvoltage' : l.flag === 'under' ? 'undervoltage' : 'within limits',
+            ...(impedance ? [fixed(impedance.loads[k]!.voltage, 1), fixed(impedance.loads[k]!.voltagePercent, 1)] : []),
+            ...(other ? [fixed(other.loads[k]!.voltage, 1), fixed(other.loads[k]!.voltagePercent, 1)] : []),
+          ];
         }),
+        note: `${key.join('. ')}.`,
       },
+      ...(on.findings.length ? [{ kind: 'list' as const, tone: 'warning' as const, items: on.findings }] : []),
       { kind: 'list', tone: 'caution', items: on.cautions },
     ],
   };

@@ -74,7 +74,7 @@ export function closingSections(input: ClosingInput): ReportSection[] {
   const standards = [
     ...BOARD_STANDARDS,
     ...(input.results.some((r) => r.sequences) ? THREE_PHASE_STANDARDS : []),
-    ...(correction ? correctionStandards(starWordOf(first?.conventions.region ?? 'iec')) : []),
+    ...(correction ? correctionStandards(starWordOf(first?.conventions.region ?? 'iec'), input.results.some((r) => r.board.system.startsWith('three-phase'))) : []),
     ...(harmonics ? harmonicsStandards([...(harmonics.voltageDistortion ? [harmonics.voltageDistortion.basis] : []), ...(harmonics.boards ?? []).map((b) => b.voltageDistortion.basis)]) : []),
   ];
   const cautions = [...new Set([...(correction?.cautions ?? []), ...(harmonics?.cautions ?? []), ...(handCheck?.cautions ?? []), ...input.results.flatMap((r) => r.cautions)])];

@@ -74,13 +74,13 @@ function equipmentTable(report: CorrectionReport): ReportBlock | null {
 
 /** Where the target is measured, when that is not the equipment's board, and the PF reached there. */
 /** What the installer sets on the bank's controller (the text report's Controller lines, as facts). */
-function controllerFacts(c: ControllerSettings): ReportBlock {
+function controllerFacts(c: ControllerSettings, system: string): ReportBlock {
   const band = `PF at least ${fixed(c.targetBand.minPf, 3)} lagging${c.targetBand.maxPf === null ? (c.targetBand.leadingAllowed ? ', leading allowed' : ', never leading') : `, at most ${fixed(c.targetBand.maxPf, 3)} lagging`}`;
   const amps = (a: number) => (Number.isInteger(a) ? String(a) : fixed(a, 1));
   return {
     kind: 'facts',
     items: [
-      ['Controller outputs', `${c.outputsUsed} of ${c.outputs} used; ${c.measurement === 'one-line' ? 'balanced steps, read from one CT' : 'steps serving single lines: the controller measures every line (a CT on each)'}`],
+      ['Controller outputs', `${c.outputsUsed} of ${c.outputs} used; ${c.measurement === 'one-line' ? (system === 'single-phase' ? 'read from one CT on the line' : 'balanced steps, read from one CT') : 'steps serving single lines: the controller measures every line (a CT on each)'}`],
       ['Current transformer', `${amps(c.ctPrimaryA)}/${amps(c.ctSecondaryA)} A${c.ctChosen ? '' : ' (given)'} at ${c.ctBasis.placeWords}; ${c.ctChosen ? `the next standard primary at or above 1.25 × ${c.ctBasis.currentWords}; use yours if it differs` : `checked against ${c.ctBasis.currentWords}`}`],
       ['Response threshold (C/k)', `${fixed(c.responseThresholdA, 3)} A for the smallest step (${fixed(c.smallestStepKvar, 2)} kvar at nominal voltage)${c.thresholdBasis === 'line-pair' ? ", per line: the step is across two lines, and each of them sees √3/2 of its branch current as reactive current, read against that line's voltage to the neutral" : ''}; set ${fixed(c.responseSettingA, 3)} A (${c.settingFraction} × C/k)`],
       ['Power-factor band', band],
@@ -124,7 +124,7 @@ function nothingToAddSection(report: CorrectionReport, comparison: CorrectionCom
   if (report.reasons.length) blocks.push({ kind: 'list', tone: 'warning', items: report.reasons });
   blocks.push({
     kind: 'table',
-    caption: 'Each line as solved, without equipment',
+    caption: v.lines.length === 1 ? 'The line as solved, without equipment' : 'Each line as solved, without equipment',
     columns: [{ label: 'Line' }, { label: 'A', align: 'right' }, { label: 'Active A', align: 'right' }, { label: 'Reactive A', align: 'right' }, { label: 'PF', align: 'right' }],
     rows: v.lines.map((l) => [
       label(l.phase),
@@ -133,15 +133,18 @@ function nothingToAddSection(report: CorrectionReport, comparison: CorrectionCom
       fixed(l.reactiveCurrentA.before, 1),
       linePfText(l.pf.before, l.sense.before, l.activeCurrentA.before, '—'),
     ]),
-    note: linesNote(v.lines.filter((l) => isExportCurrentA(l.activeCurrentA.before)).map((l) => label(l.phase))),
+    note: linesNote(v.lines.filter((l) => isExportCurrentA(l.activeCurrentA.before)).map((l) => label(l.phase)), v.lines.length),
   });
   return { id: 'correction', title: 'Correction recommendation', blocks };
 }
 
 
-/** The lines tables' note, with what "export" means where a line carries power back. */
-function linesNote(exporting: readonly string[]): string {
-  const base = 'Active and reactive parts of each line current, along and across its own line-to-neutral voltage (reactive above zero is lagging).';
+/** The lines tables' note, with what "export" means where a line carries power back; a single-phase board has one line. */
+function linesNote(exporting: readonly string[], lineCount: number): string {
+  const base =
+    lineCount === 1
+      ? 'Active and reactive parts of the line current, along and across its voltage to the neutral (reactive above zero is lagging).'
+      : 'Active and reactive parts of each line current, along and across its own line-to-neutral voltage (reactive above zero is lagging).';
   const more = exportingLinesNote(exporting);
   return more === null ? base : `${base} ${more.charAt(0).toUpperCase()}${more.slice(1)}.`;
 }
@@ -176,10 +179,10 @@ export function correctionSection(report: CorrectionReport, comparison: Correcti
   const equipment = equipmentTable(report);
   if (equipment) blocks.push(equipment);
   const controller = report.selection?.controller;
-  if (controller) blocks.push(controllerFacts(controller));
+  if (controller) blocks.push(controllerFacts(controller, v.before.board.system));
   blocks.push({
     kind: 'table',
-    caption: 'Each line before and after',
+    caption: v.lines.length === 1 ? 'The line before and after' : 'Each line before and after',
     columns: [
       { label: 'Line' },
       { label: 'A before', align: 'right' },
@@ -198,10 +201,10 @@ export function correctionSection(report: CorrectionReport, comparison: Correcti
       linePfText(l.pf.before, l.sense.before, l.activeCurrentA.before, '—'),
       linePfText(l.pf.after, l.sense.after, l.activeCurrentA.after, '—'),
     ]),
-    note: linesNote(v.lines.filter((l) => isExportCurrentA(l.activeCurrentA.before) || isExportCurrentA(l.activeCurrentA.after)).map((l) => label(l.phase))),
+    note: linesNote(v.lines.filter((l) => isExportCurrentA(l.activeCurrentA.before) || isExportCurrentA(l.activeCurrentA.after)).map((l) => label(l.phase)), v.lines.length),
   });
   blocks.push({ kind: 'figure', name: 'correction-phasors', caption: 'Phasors before (dashed) and after (solid) the correction', svg: renderPhasorDiagram(v.before, { after: v.after }) });
-  blocks.push({ kind: 'figure', name: 'correction-triangles', caption: 'How the equipment changes each line current', svg: renderCurrentTriangles(v.before, v.after) });
+  blocks.push({ kind: 'figure', name: 'correction-triangles', caption: v.lines.length === 1 ? 'How the equipment changes the line current' : 'How the equipment changes each line current', svg: renderCurrentTriangles(v.before, v.after) });
   if (v.lightLoad) {
     blocks.push({
       kind: 'paragraph',

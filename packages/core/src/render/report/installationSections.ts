@@ -19,6 +19,9 @@ import { checkListArgument } from '../../_internal/argumentChecks.js';
 
 const num = (label: string): ReportColumn => ({ label, align: 'right' });
 
+/** Where a feeder's drop is read: its worst phase, the worse of a split-phase board's two lines, a single-phase board's one line. */
+const worstWord = (system: string): string => (system.startsWith('three-phase') ? 'worst phase' : system === 'split-phase' ? 'worse line' : 'line');
+
 /** File- and anchor-safe ids for the boards, unique even where two names differ only in case or punctuation. */
 export function boardSectionIds(names: readonly string[]): Map<string, string> {
   checkListArgument(names, 'names', 'a list of board names (strings)', (x) => typeof x === 'string');
@@ -128,7 +131,7 @@ export function feedersSection(result: InstallationResult): ReportSection {
           fixed(f.voltageDropPercent, 2),
           fixed(f.lossesKW, 3),
         ]),
-        note: `Loading: the most loaded conductor against its rating (— without ratings). Drop: |V| at the sending end minus |V| at the board, the phase that changes most (negative: a rise), % of nominal line-to-neutral voltage; for the service feeder, from the source EMF. Loss: conductor losses${result.boards[0]!.result.board.idealSource ? ', the source being ideal (no windings to lose power in)' : ' (the service feeder also the source windings)'}.`,
+        note: `Loading: the most loaded conductor against its rating (— without ratings). Drop: |V| at the sending end minus |V| at the board, ${result.installation.system === 'single-phase' ? 'line to neutral' : `the ${result.installation.system === 'split-phase' ? 'line' : 'phase'} that changes most`} (negative: a rise), % of nominal line-to-neutral voltage; for the service feeder, from the source EMF. Loss: conductor losses${result.boards[0]!.result.board.idealSource ? ', the source being ideal (no windings to lose power in)' : ' (the service feeder also the source windings)'}.`,
       },
     ],
   };
@@ -180,7 +183,7 @@ export function boardSection(spec: InstallationBaseSpec, result: InstallationRes
         // The main board's figures count from the source EMF: the source windings are in them, feeder or none.
         [
           board.fedFrom === null ? (board.result.board.idealSource ? 'Drop and loss from the source (service feeder; the source is ideal)' : 'Drop and loss from the source (source windings and service feeder)') : 'Feeder drop and loss',
-          `${fixed(feeder.voltageDropPercent, 2)} % worst phase, ${fixed(feeder.lossesKW, 3)} kW`,
+          `${fixed(feeder.voltageDropPercent, 2)} % ${worstWord(result.installation.system)}, ${fixed(feeder.lossesKW, 3)} kW`,
         ],
         ['Circuits', `${own.loads.length}`],
       ],

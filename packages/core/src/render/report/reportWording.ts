@@ -20,14 +20,26 @@ export function currentConvention(system: string, label: (phase: string) => stri
 /** The model's assumptions, with the current convention of the boards in the report (one sentence per system). */
 export function modelAssumptions(systems: readonly string[], label?: (phase: string) => string): string[] {
   const [first, ...rest] = MODEL_ASSUMPTIONS;
-  const conventions = [...new Set(systems.length ? systems : ['three-phase-4wire'])].map((s) => currentConvention(s, label));
-  return [first!, ...rest.slice(0, 2), ...conventions, ...rest.slice(2)];
+  const kinds = [...new Set(systems.length ? systems : ['three-phase-4wire'])];
+  const conventions = kinds.map((s) => currentConvention(s, label));
+  return [first!, rest[0]!, sourceAssumption(kinds), ...conventions, ...rest.slice(1)];
 }
+
+/** How many EMFs the source of each system has: one winding, the two halves of a centre-tapped one, three phases. */
+const EMF_COUNT: Readonly<Record<string, string>> = { 'single-phase': 'one EMF', 'split-phase': 'two EMFs', 'three-phase-4wire': 'three EMFs', 'three-phase-3wire': 'three EMFs' };
+
+/** The source and feeder model, with the number of EMFs of the boards' systems. */
+function sourceAssumption(systems: readonly string[]): string {
+  const counts = [...new Set(systems.map((s) => EMF_COUNT[s] ?? 'three EMFs'))];
+  return `The source is ${counts.join(' or ')} behind the source impedance; ${SOURCE_AND_FEEDERS}`;
+}
+
+const SOURCE_AND_FEEDERS =
+  'a transformer rating gives that impedance referred to the board voltage. Feeder conductors are series impedances, each at the resistance of its stated operating temperature (a conductor from the cable library is corrected from its 20 °C table value); mutual coupling between conductors, and the temperature the load current itself would give, are not modelled.';
 
 const MODEL_ASSUMPTIONS: readonly string[] = [
   'Steady state at the fundamental frequency: voltages and currents are sinusoidal phasors (rms values).',
   'Every circuit is modelled as entered: its rating at nominal voltage and its voltage dependence (constant power, current, impedance or a ZIP mix); a constant-power or constant-current load below 0.7 of its nominal voltage is held at the impedance it has there.',
-  'The source is three (or two) EMFs behind the source impedance; a transformer rating gives that impedance referred to the board voltage. Feeder conductors are series impedances, each at the resistance of its stated operating temperature (a conductor from the cable library is corrected from its 20 °C table value); mutual coupling between conductors, and the temperature the load current itself would give, are not modelled.',
   'Powers follow the load convention: kW above zero is consumed, kvar above zero is lagging (inductive).',
 ];
 
@@ -53,13 +65,16 @@ export const THREE_PHASE_STANDARDS: readonly StandardReference[] = [
   { name: 'IEEE phase-voltage unbalance rate (P. Pillay, M. Manyage, "Definitions of voltage unbalance")', use: 'unbalance of the line-to-neutral voltages' },
 ];
 
-/** The standards a correction study rests on; the compensator's branches in the board's word for star (wye in North America). */
-export const correctionStandards = (star: StarWord): readonly StandardReference[] => [
+/**
+ * The standards a correction study rests on; the compensator's branches in the board's word for star (wye in North America).
+ * @param threePhase false where no board of the report is three-phase: the balancing compensator is a three-phase method
+ */
+export const correctionStandards = (star: StarWord, threePhase = true): readonly StandardReference[] => [
   { name: 'IEC 60831-1', use: 'low-voltage shunt capacitors: capacitance tolerance, permitted voltage and current, discharge' },
   { name: 'IEEE Std 18', use: 'shunt power capacitors: continuous voltage, current and kvar limits' },
   { name: 'IEEE Std 1036', use: 'application of shunt capacitors: voltage rise ΔV/V ≈ Qc/Ssc and parallel resonance order h = √(Ssc/Qc), worked here from the supply path\'s reactance, h = √(Xc/Xpath), as the formula assumes X ≫ R' },
   { name: 'NEC Article 460', use: 'capacitor installations: discharge and conductor sizing (where the NEC applies)' },
-  { name: 'Steinmetz / Gyugyi balancing compensator', use: `delta and ${star} reactive branches that balance an unbalanced load` },
+  ...(threePhase ? [{ name: 'Steinmetz / Gyugyi balancing compensator', use: `delta and ${star} reactive branches that balance an unbalanced load` }] : []),
 ];
 
 export const INSTALLATION_ASSUMPTIONS: readonly string[] = [
