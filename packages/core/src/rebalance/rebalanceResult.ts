@@ -172,12 +172,16 @@ export interface RebalanceReport {
   readonly method: 'exact' | 'local-search';
   /** The method the caller asked for (`auto` chooses by the number of movable circuits). */
   readonly methodAsked: 'auto' | 'exact' | 'local-search';
+  /**
+   * True when no assignment within the move limit ranks better: a lower score, or where the answer is over a
+   * limit (`overload`), a smaller overload (then score, then moves).
+   */
   readonly proven: boolean;
   /** Scores in the fast model (lower is better; A for current figures, % for unbalance figures). */
   readonly score: {
     readonly before: number;
     readonly after: number;
-    /** No assignment within the move limit scores below this. */
+    /** No assignment within the move limit scores below this; null where the answer is over a limit (it is ranked by overload first). */
     readonly lowerBound: number | null;
     readonly gap: number | null;
     readonly gapPercent: number | null;
