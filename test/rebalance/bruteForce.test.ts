@@ -109,6 +109,39 @@ function bruteForce(spec: BoardSpec, study: Study): BruteBest {
   return { score: best, moves: fewest, feasible: scores.some((s) => s.score <= best + tie) };
 }
 
+/**
+ * Where no wiring keeps the capacity: the least overload over every wiring, ranked as the study ranks it (the
+ * definition restated): the largest line current over the capacity, per unit of it, then those overs added, then
+ * the score; with the fewest moves among the wirings that reach it (within the same tolerances).
+ */
+function bruteLeastOverload(spec: BoardSpec, study: Study & { lineCapacityA: number }): { largest: number; sum: number; score: number; moves: number } {
+  const pins = new Map<number, ConnectionSpec>();
+  study.pinned.forEach((name) => {
+    const i = spec.loads.findIndex((l) => l.name === name);
+    pins.set(i, spec.loads[i]!.connection);
+  });
+  const cap = study.lineCapacityA;
+  const all: { largest: number; sum: number; score: number; moves: number }[] = [];
+  enumerateAssignments(spec, pins, (connections) => {
+    const moves = movesBetween(spec, connections);
+    if (study.moveLimit !== undefined && moves > study.moveLimit) return;
+    const figures = study.conditions.map((c) => {
+      const f = boardFigures(spec, connections, factorsOf(spec, c));
+      return { ...f, positive: positiveOf(f) };
+    });
+    const overs = figures.flatMap((f) => f.lines.map((x) => Math.max(0, x / cap - 1)));
+    all.push({ largest: Math.max(...overs), sum: overs.reduce((t, x) => t + x, 0), score: scoreOf(study, figures), moves });
+  });
+  const tie = 1e-9;
+  const largest = Math.min(...all.map((x) => x.largest));
+  const atLargest = all.filter((x) => x.largest <= largest + tie);
+  const sum = Math.min(...atLargest.map((x) => x.sum));
+  const atSum = atLargest.filter((x) => x.sum <= sum + tie);
+  const score = Math.min(...atSum.map((x) => x.score));
+  const moves = Math.min(...atSum.filter((x) => x.score <= score + 1e-9 * Math.max(score, 1e-6)).map((x) => x.moves));
+  return { largest, sum, score, moves };
+}
+
 function run(spec: BoardSpec, study: Study, method: 'exact' | 'local-search'): RebalanceReport {
   return rebalanceBoard(normaliseBoard(parseBoard(spec)), study, { method, moveTable: false, kicks: 20 });
 }
@@ -174,9 +207,56 @@ describe('rebalance: exhaustive enumeration on small boards', () => {
         if (brute.feasible) {
           expectClose(report.score.after, brute.score, { rel: 1e-9, abs: 1e-9 }, 'best score within capacity');
           report.conditions.forEach((c) => c.model.after.lineA.forEach((x) => expect(x).toBeLessThanOrEqual(capped.lineCapacityA * (1 + 1e-9))));
-        } else expect(report.notes.join(' ')).toMatch(/capacity/);
+        } else {
+          expect(report.notes.join(' ')).toMatch(/capacity/);
+          // The least overload, proven by branch-and-bound, is the brute-force least, and so are the score and moves under it.
+          const least = bruteLeastOverload(spec, capped);
+          const overs = report.conditions.flatMap((c) => c.model.after.lineA.map((x) => Math.max(0, x / capped.lineCapacityA - 1)));
+          expect(report.overload).toMatchObject({ within: false, proven: true });
+          expectClose(Math.max(...overs), least.largest, { rel: 1e-9, abs: 1e-9 }, 'largest overload');
+          expectClose(overs.reduce((t, x) => t + x, 0), least.sum, { rel: 1e-9, abs: 1e-9 }, 'overloads added');
+          expectClose(report.score.after, least.score, { rel: 1e-9, abs: 1e-9 }, 'score at the least overload');
+          expect(report.moves.length).toBeLessThanOrEqual(least.moves);
+        }
       }),
       { numRuns: 25 },
     );
+  });
+
+  it('a capacity below every wiring but above the bound: the least overload with the fewest moves, as brute force finds it', () => {
+    // Capacities between the polygon bound's (which refuses the study) and the best wiring's largest line: none fits.
+    let infeasibleRuns = 0;
+    fc.assert(
+      fc.property(boardAndStudy, fc.double({ min: 0.9, max: 1, noNaN: true }), ({ spec, study }, share) => {
+        const { moveLimit: _limited, ...free } = study;
+        let best: RebalanceReport;
+        try {
+          best = run(spec, { ...free, aim: { largestLine: 1 }, combine: 'worst' }, 'exact');
+        } catch {
+          return;
+        }
+        const largest = Math.max(...best.conditions.flatMap((c) => c.model.after.lineA));
+        const capped = { ...study, lineCapacityA: share * largest };
+        let report: RebalanceReport;
+        try {
+          report = run(spec, capped, 'exact');
+        } catch (error) {
+          expect(error).toBeInstanceOf(InputError);
+          return;
+        }
+        if (report.overload === null || report.overload.within) return;
+        infeasibleRuns++;
+        const least = bruteLeastOverload(spec, capped);
+        const overs = report.conditions.flatMap((c) => c.model.after.lineA.map((x) => Math.max(0, x / capped.lineCapacityA - 1)));
+        expect(report.overload.proven).toBe(true);
+        expectClose(Math.max(...overs), least.largest, { rel: 1e-9, abs: 1e-9 }, 'largest overload');
+        expectClose(overs.reduce((t, x) => t + x, 0), least.sum, { rel: 1e-9, abs: 1e-9 }, 'overloads added');
+        expectClose(report.score.after, least.score, { rel: 1e-9, abs: 1e-9 }, 'score at the least overload');
+        expect(report.moves.length).toBe(least.moves);
+      }),
+      { numRuns: 40 },
+    );
+    figures.note('capacity below every wiring: runs that reached the overload comparison (of 40)', infeasibleRuns);
+    expect(infeasibleRuns).toBeGreaterThan(0);
   });
 });

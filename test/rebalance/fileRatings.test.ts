@@ -212,7 +212,7 @@ describe('a rating the re-solve puts over where the fast model kept it', () => {
 });
 
 describe('the text report where a rating is still over after the moves', () => {
-  it('the verdict names the proof as the fast model\'s and points at the first note; an over-now rating alone keeps it plain', async () => {
+  it('the verdict names the proof as the fast model\'s and points at the notes, for a rating over after the moves whether or not it was over now', async () => {
     const { renderRebalanceReport } = await import('../../packages/cli/src/format/rebalanceReport.js');
     const { report } = rebalanceText(pottery(36));
     const flat = (text: string) => text.replace(/\s+/g, ' ');
@@ -222,7 +222,10 @@ describe('the text report where a rating is still over after the moves', () => {
     expect(flat(renderRebalanceReport(overAfter))).toContain(
       "proven best within the file's ratings by the fast model, but the network re-solve puts a rating over (see the first note)",
     );
+    // Over now and still over after, where the fast model keeps it within: not "within the file's ratings" either.
     const overNow = { ...report, capacityExceeded: [{ ...excess, nowA: 37.2, change: 'unchanged' as const }] };
-    expect(flat(renderRebalanceReport(overNow))).toContain("proven best within the file's ratings Work order");
+    expect(flat(renderRebalanceReport(overNow))).toContain(
+      "proven best within the file's ratings by the fast model, but the network re-solve puts a rating over (see the notes) Work order",
+    );
   });
 });

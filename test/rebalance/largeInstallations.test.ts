@@ -15,8 +15,13 @@ import { randomInstallation } from './support/rebalanceInstallations.js';
 
 const model = (spec: InstallationSpec) => normaliseInstallation(parseInstallation(spec)).installation;
 
-/** Invented: a main board and six sub-boards, two of them fed through a third, 150 circuits in all. */
-const LARGE = randomInstallation({ system: 'three-phase-4wire', circuits: [30, 20, 20, 20, 20, 20, 20], parents: [0, 0, 1, 1, 0, 4], impedance: true, seed: 20261204 });
+/**
+ * Invented: a main board and six sub-boards, two of them fed through a third, 150 circuits in all. The supply
+ * transformer is rated for the load (1,000 kVA, 1,443 A; the recipe's 250 kVA would carry it at 331 %): these
+ * tests are of the table over answers within the ratings, not of the overload an answer over them is ranked by.
+ */
+const RECIPE = randomInstallation({ system: 'three-phase-4wire', circuits: [30, 20, 20, 20, 20, 20, 20], parents: [0, 0, 1, 1, 0, 4], impedance: true, seed: 20261204 });
+const LARGE = { ...RECIPE, supply: { ...RECIPE.supply, transformer: { kVA: 1000, impedancePercent: 4.5, xOverR: 4 } } } as InstallationSpec;
 
 describe('move table on large installations', () => {
   it('answers every count up to 20 past the forced moves, then about a quarter more each row, and the limit', () => {
@@ -31,6 +36,7 @@ describe('move table on large installations', () => {
     const table = report.moveTable!;
     expect(table.length).toBeGreaterThan(21);
     const tie = 1e-9 * report.score.before;
+    expect(table.every((row) => row.withinCapacity)).toBe(true);
     for (const row of table) if (row.withinCapacity) expect(report.score.after).toBeLessThanOrEqual(row.score + tie);
     // The bound no assignment within the whole limit beats: no row, at any count, scores below it.
     for (const row of table) expect(row.score).toBeGreaterThanOrEqual(report.score.lowerBound! - tie);

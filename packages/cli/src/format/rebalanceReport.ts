@@ -66,20 +66,37 @@ function scoreDigits(xs: readonly number[]): number {
   return smallest >= 100 ? 1 : smallest >= 1 ? 2 : 3;
 }
 
+/** The overload measure in words: how the search ranks answers that leave something over its limit. */
+const OVERLOAD_ORDER = 'least overload first: the largest loading over 100 %, then the loadings over 100 % added, then the score';
+
+/** The verdict where the answer leaves something over a rating or capacity: what, how far, and whether proven least. */
+function overloadVerdict(r: RebalanceReport, o: NonNullable<RebalanceReport['overload']>, plural: (n: number) => string): string {
+  const what = o.worst
+    ? `${o.worst.what} at ${fixed(o.worst.loadingPercent, 0)} % of its ${o.worst.limit}`
+    : 'a limit in the fast model, though the network re-solve finds every current within';
+  if (r.moveLimit === 0) return `still over: ${what}; the move limit of 0 allows no move`;
+  const budget = r.moveLimit === null ? '' : ` with at most ${plural(r.moveLimit)}`;
+  return o.proven
+    ? `still over: ${what}; no arrangement${budget} does better (proven, ${OVERLOAD_ORDER})`
+    : `still over: ${what}; the least overload found${budget}, not proven (${OVERLOAD_ORDER})`;
+}
+
 function verdict(r: RebalanceReport): string {
+  const plural = (n: number) => `${n} move${n === 1 ? '' : 's'}`;
+  if (r.overload && !r.overload.within) return overloadVerdict(r, r.overload, plural);
   // Where the file rates conductors or supply units, the search kept them: the proof is over those answers.
   // The fast model keeps the ratings; where the re-solve puts one over all the same, the proof is the model's only.
-  const overAfter = r.capacityExceeded.some((e) => e.limit === 'rating' && e.change !== 'unchanged');
+  const ratingOver = r.capacityExceeded.filter((e) => e.limit === 'rating');
+  const caused = ratingOver.some((e) => e.change !== 'unchanged');
   const proof = r.proven
     ? r.ratingsKept
-      ? overAfter
-        ? "proven best within the file's ratings by the fast model, but the network re-solve puts a rating over (see the first note)"
+      ? ratingOver.length
+        ? `proven best within the file's ratings by the fast model, but the network re-solve puts a rating over (see the ${caused ? 'first note' : 'notes'})`
         : "proven best within the file's ratings"
       : 'proven best'
     : r.score.gapPercent !== null
       ? `best found; at most ${fixed(r.score.gapPercent, 2)} % (${score(r.score.gap ?? 0)}) above the best possible`
       : 'best found; no bound';
-  const plural = (n: number) => `${n} move${n === 1 ? '' : 's'}`;
   if (r.nearBest)
     return `${proof} with at most ${plural(r.moves.length)}: the fewest moves within ${fixed(r.nearBest.percent, 1)} % of the best score ${score(r.nearBest.bestScore)}`;
   return `${proof}${r.moveLimit === null ? '' : ` with at most ${plural(r.moveLimit)}`}`;
@@ -193,18 +210,40 @@ function conditionTable(r: RebalanceReport, c: ConditionComparison, lines: reado
   );
 }
 
+/** A loading, %: one decimal, more where one would show a row just over its limit as 100.0 (up to 100.001). */
+function loadingCell(percent: number): string {
+  let digits = 1;
+  while (digits < 3 && percent > 100 && Number(fixed(percent, digits)) <= 100) digits++;
+  return fixed(percent, digits);
+}
+
 function moveTable(r: RebalanceReport): string {
-  const digits = scoreDigits((r.moveTable ?? []).flatMap((t) => [t.score, ...(t.lowerBound === null ? [] : [t.lowerBound])]));
-  const rows = (r.moveTable ?? []).map((t) => [
+  const table = r.moveTable ?? [];
+  const digits = scoreDigits(table.flatMap((t) => [t.score, ...(t.lowerBound === null ? [] : [t.lowerBound])]));
+  // Where a row is over a limit, rows rank by overload before score: its largest loading is shown beside the score.
+  const loading = table.some((t) => !t.withinCapacity);
+  const rows = table.map((t) => [
     String(t.moves),
     fixed(t.score, digits),
     t.lowerBound === null ? '-' : fixed(t.lowerBound, digits),
-    t.withinCapacity ? (t.proven ? 'proven' : 'best found') : t.proven ? 'over capacity (no way within)' : 'over capacity',
+    ...(loading ? [t.largestLoadingPercent === null ? '-' : loadingCell(t.largestLoadingPercent)] : []),
+    // Over a rating or capacity, a row's answer is the least overload (proven: no answer with as many moves has less).
+    t.withinCapacity ? (t.proven ? 'proven' : 'best found') : t.proven ? 'over a limit, least proven' : 'over a limit',
     String(t.movesUsed),
   ]);
-  return renderTable(
-    [{ header: 'moves allowed' }, { header: 'score' }, { header: 'bound' }, { header: 'status', align: 'left' }, { header: 'moves used' }],
-    rows,
+  const key = loading ? `\n${wrapText('largest loading: the most loaded current the file rates or the study caps, % of its limit as the search holds it (fast model; a rating scaled by how far the fast model reads the present wiring below the network re-solve); an answer over a limit is ranked by it first', '  ', '  ')}` : '';
+  return (
+    renderTable(
+      [
+        { header: 'moves allowed' },
+        { header: 'score' },
+        { header: 'bound' },
+        ...(loading ? [{ header: 'largest loading %' }] : []),
+        { header: 'status', align: 'left' },
+        { header: 'moves used' },
+      ],
+      rows,
+    ) + key
   );
 }
 

@@ -57,7 +57,11 @@ export function magnitudesOf(sums: Float64Array, out: Float64Array, at = 0): Flo
   return out;
 }
 
-/** How far the magnitudes exceed their limits, summed (0 when every limit holds). */
+/**
+ * How far the magnitudes exceed their limits, summed in A (0 when every limit holds): a penalty the
+ * greedy start and the trimming of moves add to the score. The searches compare answers by the
+ * overload measure below instead.
+ */
 export function limitExcess(p: AssignmentProblem, magnitudes: Float64Array): number {
   let excess = 0;
   for (let j = 0; j < magnitudes.length; j++) {
@@ -65,6 +69,31 @@ export function limitExcess(p: AssignmentProblem, magnitudes: Float64Array): num
     if (over > 0) excess += over;
   }
   return excess;
+}
+
+/**
+ * The overload measure, per unit of each quantity's limit (a study capacity or the file's rating):
+ * the largest loading over 1, |q|/limit − 1 (0 when every limit holds). A board already over a
+ * rating is scored by how far over it stays, so a move set that lowers the worst overload always
+ * beats one that keeps it, whatever the aim's score.
+ */
+export function largestOverload(p: AssignmentProblem, magnitudes: Float64Array): number {
+  let largest = 0;
+  for (let j = 0; j < magnitudes.length; j++) {
+    const over = magnitudes[j]! / p.limits[j]! - 1;
+    if (over > largest) largest = over;
+  }
+  return largest;
+}
+
+/** The overload measure's second part: every loading over 1 added, per unit (between answers of equal largest overload). */
+export function overloadSum(p: AssignmentProblem, magnitudes: Float64Array): number {
+  let sum = 0;
+  for (let j = 0; j < magnitudes.length; j++) {
+    const over = magnitudes[j]! / p.limits[j]! - 1;
+    if (over > 0) sum += over;
+  }
+  return sum;
 }
 
 export function countMoves(p: AssignmentProblem, choice: ArrayLike<number>): number {
@@ -78,17 +107,21 @@ export function homeChoice(p: AssignmentProblem): Int32Array {
   return Int32Array.from(p.home, (k) => (k < 0 ? 0 : k));
 }
 
-/** An assignment with its score; `excess` > 0 means a line limit is broken. */
+/**
+ * An assignment with its score and overload: `excess` the largest loading over a limit, `excessSum`
+ * every loading over a limit added (both per unit; 0 when every limit holds).
+ */
 export interface ScoredChoice {
   readonly choice: Int32Array;
   readonly score: number;
   readonly excess: number;
+  readonly excessSum: number;
   readonly moves: number;
 }
 
 export function scoreChoice(p: AssignmentProblem, choice: Int32Array): ScoredChoice {
   const mags = magnitudesOf(sumQuantities(p, choice), new Float64Array(p.quantityCount));
-  return { choice: Int32Array.from(choice), score: p.score(mags), excess: limitExcess(p, mags), moves: countMoves(p, choice) };
+  return { choice: Int32Array.from(choice), score: p.score(mags), excess: largestOverload(p, mags), excessSum: overloadSum(p, mags), moves: countMoves(p, choice) };
 }
 
 /**
@@ -99,13 +132,49 @@ export function tieTolerance(reference: number): number {
   return 1e-9 * Math.max(Math.abs(reference), 1e-6);
 }
 
-/** True when a is a better answer than b: feasible first, then score (with ties), then fewer moves. */
-export function isBetter(a: ScoredChoice, b: ScoredChoice, tie: number): boolean {
-  const aOk = a.excess <= tie;
-  const bOk = b.excess <= tie;
-  if (aOk !== bOk) return aOk;
-  if (!aOk) return a.excess < b.excess - tie;
+/**
+ * Overloads (per unit) within this of each other count as equal: mirror-image answers over the same
+ * limits by the same amounts differ by float noise only, which must not buy a move.
+ */
+export const OVERLOAD_TIE = 1e-9;
+
+/** True when every limited quantity is within its limit (up to OVERLOAD_TIE). */
+export const withinLimits = (a: { readonly excess: number }): boolean => a.excess <= OVERLOAD_TIE;
+
+/** The parts answers are compared by. */
+export interface AnswerKey {
+  readonly excess: number;
+  readonly excessSum: number;
+  readonly score: number;
+  readonly moves: number;
+}
+
+/**
+ * True when a is a better answer than b: the least largest overload first, then the least sum of
+ * overloads, then the score (ties within `tie`), then fewer moves. Where every limit holds (both
+ * overloads 0) that is the score, then fewer moves.
+ */
+export function isBetter(a: AnswerKey, b: AnswerKey, tie: number): boolean {
+  if (a.excess < b.excess - OVERLOAD_TIE) return true;
+  if (a.excess > b.excess + OVERLOAD_TIE) return false;
+  if (a.excessSum < b.excessSum - OVERLOAD_TIE) return true;
+  if (a.excessSum > b.excessSum + OVERLOAD_TIE) return false;
   if (a.score < b.score - tie) return true;
   if (a.score > b.score + tie) return false;
   return a.moves < b.moves;
+}
+
+/**
+ * True when no completion below a search node can beat `best`: every part of the node's key is a
+ * lower bound on that part of any completion's (overloads and score from magnitude bounds, moves
+ * only grow), compared part by part as isBetter compares them.
+ */
+export function cannotBeat(node: AnswerKey, best: AnswerKey, tie: number): boolean {
+  if (node.excess > best.excess + OVERLOAD_TIE) return true;
+  if (node.excess < best.excess - OVERLOAD_TIE) return false;
+  if (node.excessSum > best.excessSum + OVERLOAD_TIE) return true;
+  if (node.excessSum < best.excessSum - OVERLOAD_TIE) return false;
+  if (node.score > best.score + tie) return true;
+  if (node.score < best.score - tie) return false;
+  return node.moves >= best.moves;
 }

@@ -21,7 +21,7 @@ import type { Board, BoardLoad } from '../board/boardModel.js';
 import type { ConnectionSpec } from '../board/boardSchema.js';
 import { A_OPERATOR, A_SQUARED, abs, add, complex, conj, div, mul, polar, scale, sub, ZERO, type ComplexValue } from '../complex.js';
 import { fortescueComponents } from '../analysis/symmetricalComponents.js';
-import { homeChoice, magnitudesOf, MAX_OPTIONS, sumQuantities, type AssignmentProblem } from './assignmentProblem.js';
+import { MAX_OPTIONS, type AssignmentProblem } from './assignmentProblem.js';
 import { ratedCurrentLimits } from './ratedCurrentLimits.js';
 import { builtInMagnitudeScore, magnitudeScore, type ConditionLayout, type RebalanceObjective } from './rebalanceObjective.js';
 import { connectionChoices, type ResolvedRebalance } from './rebalanceRules.js';
@@ -54,14 +54,13 @@ export interface BuiltProblem {
   readonly singleQuantity: number | null;
   /**
    * The file's ratings as limits of the search (ratedCurrentLimits.ts): per quantity, the rated current in
-   * the fast model's terms (scaled by solvedNowA), and the limit set, which is that or, where the present
-   * wiring is over it, the present figure (a move set may not make an overload worse). Line and neutral
-   * currents at every rated board's incomer.
+   * the fast model's terms (scaled by solvedNowA), the quantity's limit (or the study's capacity where that
+   * is lower). Where the present wiring is over one, the search minimises the overload first
+   * (assignmentProblem.ts isBetter). Line and neutral currents at every rated board's incomer.
    */
   readonly rated: readonly {
     readonly quantity: number;
     readonly ratingA: number;
-    readonly limitA: number;
     /** Condition and board number it is read in and at; the line (index into phases), or null for the neutral. */
     readonly condition: number;
     readonly board: number;
@@ -315,12 +314,9 @@ export function buildAssignmentProblem(
     limits,
     score,
   };
-  // A rating the present wiring is already over limits the quantity to its present figure: not made worse.
-  const now = magnitudesOf(sumQuantities(problem, homeChoice(problem)), new Float64Array(q));
-  const rated = ratedRows.map((row) => {
-    limits[row.quantity] = Math.min(limits[row.quantity]!, Math.max(row.ratingA, now[row.quantity]!));
-    return { ...row, limitA: Math.max(row.ratingA, now[row.quantity]!) };
-  });
+  // A rating the present wiring is already over stays the limit: the overload is what the search lowers first.
+  for (const row of ratedRows) limits[row.quantity] = Math.min(limits[row.quantity]!, row.ratingA);
+  const rated = ratedRows;
   let singleQuantity: number | null = null;
   const aimed = (Object.keys(study.aim) as (keyof typeof study.aim)[]).filter((k) => study.aim[k] > 0);
   if (!objective && layouts.length === 1 && aimed.length === 1) {

@@ -22,10 +22,13 @@ import type { VoltageCheck } from '../analysis/voltageCheck.js';
 import * as z from 'zod';
 import {
   homeChoice,
+  isBetter,
   magnitudesOf,
+  OVERLOAD_TIE,
   scoreChoice,
   sumQuantities,
   tieTolerance,
+  withinLimits,
   type AssignmentProblem,
   type ScoredChoice,
 } from './assignmentProblem.js';
@@ -40,7 +43,7 @@ import { searchMeetInMiddle } from './searchMeetInMiddle.js';
 import { termBoundFor } from './termBounds.js';
 import { ratedReadings, type RatedReading } from './ratedCurrentLimits.js';
 import { installationInCondition, moveInstallationCircuits } from './applyMoves.js';
-import type { BoardVoltageComparison, CapacityExcess, CircuitMove, ConditionComparison, MoveTableRow, RebalanceReport } from './rebalanceResult.js';
+import type { BoardVoltageComparison, CapacityExcess, CircuitMove, ConditionComparison, MoveTableRow, Overload, RebalanceReport } from './rebalanceResult.js';
 import { REBALANCE_NOTES, rebalanceCautions } from './rebalanceWording.js';
 import { movedCircuitNumber } from './movedCircuitNumber.js';
 import { bankInServiceWords, listedBanksInService } from '../analysis/banksInServiceWords.js';
@@ -194,11 +197,28 @@ function answerWithin({ p, single, termBound }: Search, limit: number, o: Resolv
     const bounds = magnitudeBoundsWithMoveLimit(p, limit);
     lowerBound = termBound ? Math.max(p.score(bounds), termBound(bounds)) : p.score(bounds);
   }
-  if (!proven && lowerBound !== null && best.excess <= tie && lowerBound <= best.score + tie) proven = lowerBound >= best.score - tie;
+  if (!proven && lowerBound !== null && withinLimits(best) && lowerBound <= best.score + tie) proven = lowerBound >= best.score - tie;
   // A score that falls as a figure grows (only possible for a custom one) voids the bound.
   if (lowerBound !== null && lowerBound > best.score + tie) lowerBound = null;
-  if (best.excess > tie) lowerBound = null;
+  // Over a limit, the score's bound is over answers the overload ranks differently: no bound on this answer's score.
+  if (!withinLimits(best)) lowerBound = null;
   return { best, lowerBound: lowerBound === null ? null : Math.min(lowerBound, best.score), proven, exactRan, budgetReached, nodes };
+}
+
+/**
+ * The fewest moves above `limit` with which an answer keeps every limit, `within` being one that does: by
+ * bisection on the move limit (an answer allowed m moves is allowed more), each probe a search of its own.
+ */
+function fewestMovesWithin(search: Search, limit: number, within: ScoredChoice, o: ResolvedOptions, tie: number): number {
+  let over = limit;
+  let enough = within.moves;
+  while (enough - over > 1) {
+    const m = Math.floor((over + enough) / 2);
+    const probe = answerWithin(search, m, o, tie, [within]).best;
+    if (withinLimits(probe)) enough = Math.min(m, probe.moves);
+    else over = m;
+  }
+  return enough;
 }
 
 /** |I2|/|I1| of a board that draws no current has no value (0/0): null, as on a board without the figure. */
@@ -295,35 +315,122 @@ function capacityExcesses(built: BuiltProblem, study: ResolvedRebalance, choice:
 /** Searches after the first that a rating the re-solve puts over may ask for (each tightens the limits it broke). */
 const RATING_PASSES = 3;
 
+/** The rated rows (buildAssignmentProblem.ts `rated`) of one rated item: a supply unit's or the transformer's rating limits the lines it carries. */
+function ratedRowsOf(built: BuiltProblem, tree: RebalanceTree, e: Pick<CapacityExcess, 'board' | 'condition' | 'conductor' | 'line' | 'winding'>): BuiltProblem['rated'] {
+  const b = tree.names.indexOf(e.board);
+  const board = tree.boards[b]!;
+  // Every condition is read at each measured board, so a layout names its index.
+  const condition = built.layouts.find((l) => l.name === e.condition)!.condition;
+  const lines: (number | null)[] =
+    e.conductor === 'neutral'
+      ? [null]
+      : e.conductor === 'line'
+        ? [board.phases.indexOf(e.line!)]
+        : e.conductor === 'source-unit'
+          ? [board.phases.indexOf(board.sourceUnits!.find((u) => u.winding === e.winding)!.line)]
+          : board.phases.map((_, k) => k);
+  return built.rated.filter((r) => r.board === b && r.condition === condition && lines.includes(r.line));
+}
+
+/** True when the fast model's answer too has a rated item over its limit: the search chose it as the least overload. */
+function overInModel(built: BuiltProblem, tree: RebalanceTree, afterMagnitudes: Float64Array, e: Parameters<typeof ratedRowsOf>[2]): boolean {
+  return ratedRowsOf(built, tree, e).some((r) => afterMagnitudes[r.quantity]! > built.problem.limits[r.quantity]! * (1 + OVERLOAD_TIE));
+}
+
 /**
- * Tightens the fast model's limit on each quantity whose rating the re-solve of an answer put over (or further
- * over): by the ratio of the rating (or the present figure) to the re-solved one, a little more. A supply unit's
- * or the transformer's rating limits the lines it carries. False when there was nothing to tighten.
+ * Tightens the fast model's limit on each quantity whose rating the re-solve of an answer put over where the fast
+ * model kept it within: by the ratio of the rating to the re-solved figure, a little more. An item the fast model
+ * has over too is the least overload the search found, not the model's error: left as it is. False when there was
+ * nothing to tighten.
  */
-function tightenRatedLimits(built: BuiltProblem, tree: RebalanceTree, over: readonly CapacityExcess[]): boolean {
+function tightenRatedLimits(built: BuiltProblem, tree: RebalanceTree, over: readonly CapacityExcess[], afterMagnitudes: Float64Array): boolean {
   let tightened = false;
   for (const e of over) {
-    if (e.change === 'unchanged' || !(e.currentA > 0)) continue;
-    const b = tree.names.indexOf(e.board);
-    const board = tree.boards[b]!;
-    // Every condition is read at each measured board, so a layout names its index.
-    const condition = built.layouts.find((l) => l.name === e.condition)!.condition;
-    const lines: (number | null)[] =
-      e.conductor === 'neutral'
-        ? [null]
-        : e.conductor === 'line'
-          ? [board.phases.indexOf(e.line!)]
-          : e.conductor === 'source-unit'
-            ? [board.phases.indexOf(board.sourceUnits!.find((u) => u.winding === e.winding)!.line)]
-            : board.phases.map((_, k) => k);
-    const ratio = ((e.change === 'new' ? e.capacityA : e.nowA) / e.currentA) * (1 - TIGHTEN_MARGIN);
-    for (const r of built.rated)
-      if (r.board === b && r.condition === condition && lines.includes(r.line)) {
-        built.problem.limits[r.quantity] = Math.min(built.problem.limits[r.quantity]!, built.problem.limits[r.quantity]! * ratio);
-        tightened = true;
-      }
+    if (!(e.currentA > 0) || overInModel(built, tree, afterMagnitudes, e)) continue;
+    const ratio = (e.capacityA / e.currentA) * (1 - TIGHTEN_MARGIN);
+    for (const r of ratedRowsOf(built, tree, e)) {
+      built.problem.limits[r.quantity] = Math.min(built.problem.limits[r.quantity]!, built.problem.limits[r.quantity]! * ratio);
+      tightened = true;
+    }
   }
   return tightened;
+}
+
+/**
+ * The largest |q| / limit over the limited quantities, % (fast model, each limit as the search holds it: a rating
+ * scaled by the fast model's reading of the present wiring, so over 100 % exactly where the search counts it over);
+ * null where nothing is limited.
+ */
+function largestLoadingPercent(p: AssignmentProblem, choice: Int32Array): number | null {
+  const mags = magnitudesOf(sumQuantities(p, choice), new Float64Array(p.quantityCount));
+  let largest: number | null = null;
+  for (let j = 0; j < mags.length; j++) if (Number.isFinite(p.limits[j]!)) largest = Math.max(largest ?? 0, (100 * mags[j]!) / p.limits[j]!);
+  return largest;
+}
+
+/** One limited current's loading (current / limit) now and after the moves, network re-solve. */
+interface Loading {
+  readonly what: string;
+  readonly before: number;
+  readonly after: number;
+  readonly limit: 'rating' | 'capacity';
+}
+
+/**
+ * Every limited current's loading in the network re-solve, now and after: each rating the file gives, as trivar
+ * solve judges it, and each measured board's lines against the study's capacity.
+ */
+function loadingsOf(
+  conditions: readonly { readonly name: string }[],
+  solved: readonly { readonly before: { readonly results: readonly BoardResult[] }; readonly after: { readonly results: readonly BoardResult[] } }[],
+  tree: RebalanceTree,
+  study: ResolvedRebalance,
+  label: (term: string) => string,
+): Loading[] {
+  const key = (r: RatedReading) => `${r.conductor}:${r.at}`;
+  const where = (board: string, condition: string) =>
+    `${tree.boards.length > 1 ? ` at ${quoteText(board)}` : ''}${conditions.length > 1 ? ` in ${quoteText(condition)}` : ''}`;
+  return conditions.flatMap((c, ci) =>
+    tree.boards.flatMap((board, b): Loading[] => {
+      const now = solved[ci]!.before.results[b]!;
+      const then = solved[ci]!.after.results[b]!;
+      const after = new Map(ratedReadings(then, board).map((r) => [key(r), r]));
+      const rated = ratedReadings(now, board).map((r): Loading => ({
+        what: `${REBALANCE_NOTES.ratedItem(r, label)}${where(tree.names[b]!, c.name)}`,
+        before: r.currentA / r.ratingA,
+        after: after.get(key(r))!.currentA / r.ratingA,
+        limit: 'rating',
+      }));
+      const capacity = !study.measuredBoards.includes(b)
+        ? []
+        : board.phases.flatMap((phase, k): Loading[] => {
+            const cap = study.lineCapacityA[k]!;
+            if (!Number.isFinite(cap)) return [];
+            const what = `line ${label(phase)}${where(tree.names[b]!, c.name)}`;
+            return [{ what, before: now.phases[k]!.current.magnitude / cap, after: then.phases[k]!.current.magnitude / cap, limit: 'capacity' }];
+          });
+      return [...rated, ...capacity];
+    }),
+  );
+}
+
+/**
+ * The overload of the present wiring and the answer, with what stays over most (network re-solve); null where both
+ * keep every limit in the fast model the search ranks answers by (assignmentProblem.ts isBetter).
+ */
+function overloadSummary(home: ScoredChoice, chosen: Answer, loadings: readonly Loading[], movesForWithin: number | null): Overload | null {
+  if (withinLimits(home) && withinLimits(chosen.best)) return null;
+  const largest = (side: 'before' | 'after') => 100 * Math.max(0, ...loadings.map((x) => x[side]));
+  const overSum = (side: 'before' | 'after') => 100 * loadings.reduce((t, x) => t + Math.max(0, x[side] - 1), 0);
+  const worst = [...loadings].sort((a, b) => b.after - a.after)[0];
+  return {
+    largestLoadingPercent: { before: largest('before'), after: largest('after') },
+    overSumPercent: { before: overSum('before'), after: overSum('after') },
+    within: withinLimits(chosen.best),
+    proven: chosen.proven,
+    worst: worst && worst.after > 1 ? { what: worst.what, loadingPercent: 100 * worst.after, limit: worst.limit } : null,
+    movesForWithin,
+  };
 }
 
 /** Beyond the ratio, so the next answer is not one on the edge the re-solve tips over again. */
@@ -467,14 +574,14 @@ export function rebalanceInstallation(installation: Installation, study: unknown
       const rowOf = (m: number, previous: Answer | null): Answer => {
         const row: Answer = m === limit ? main : answerWithin(search, m, o, tie, previous ? [main.best, previous.best] : [main.best]);
         // An answer with fewer moves is allowed with more: rows never get worse.
-        return previous && previous.best.score <= row.best.score - tie && previous.best.excess <= tie ? { ...row, best: previous.best } : row;
+        return previous && isBetter(previous.best, row.best, tie) ? { ...row, best: previous.best } : row;
       };
       let previous: Answer | null = null;
       for (const m of tableMoveCounts(forced, limit)) {
         const row = rowOf(m, previous);
         rows.push({ moves: m, answer: row });
         previous = row;
-        if (row.best.excess <= tie && row.best.score <= main.best.score + tie && row.best.moves <= main.best.moves) break;
+        if (!isBetter(main.best, row.best, tie)) break;
       }
       // A row's search can end better than the unlimited one (both are local searches): the answer given
       // is then that row's, so the work order never scores worse than a line of the table beside it.
@@ -482,14 +589,16 @@ export function rebalanceInstallation(installation: Installation, study: unknown
         const a = answer.best;
         const c = chosen.best;
         // Its bound is for its own (smaller) move limit: the answer keeps the whole limit's.
-        if (a.excess <= tie && (c.excess > tie || a.score < c.score - tie || (a.score <= c.score + tie && a.moves < c.moves)))
-          // Likewise whether branch-and-bound over the whole limit stopped at its budget.
-          chosen = { ...answer, lowerBound: main.lowerBound, proven: main.lowerBound !== null && main.lowerBound >= a.score - tie, budgetReached: main.budgetReached };
+        if (isBetter(a, c, tie)) {
+          // Likewise whether branch-and-bound over the whole limit stopped at its budget; an answer as good as a proven one is proven.
+          const proven = main.proven || (withinLimits(a) && main.lowerBound !== null && main.lowerBound >= a.score - tie);
+          chosen = { ...answer, lowerBound: withinLimits(a) ? main.lowerBound : null, proven, budgetReached: main.budgetReached };
+        }
       }
       if (resolved.nearBestPercent !== null) {
         const best = Math.min(main.best.score, ...rows.map((r) => r.answer.best.score));
         const target = best * (1 + resolved.nearBestPercent / 100) + tie;
-        const near = (a: Answer) => a.best.score <= target && a.best.excess <= tie;
+        const near = (a: Answer) => a.best.score <= target && withinLimits(a.best);
         let at = rows.findIndex((r) => near(r.answer));
         // Between two counts the table steps over, the fewest moves that come within the target, by bisection.
         // Each probe goes into the table; `at` stays on the first row within the target.
@@ -502,7 +611,15 @@ export function rebalanceInstallation(installation: Installation, study: unknown
         const row = at >= 0 ? rows[at]! : null;
         if (row && row.moves < limit) chosen = answerWithin(search, row.moves, o, tie, [main.best]);
       }
-      table = rows.map(({ moves, answer: a }) => ({ moves, score: a.best.score, lowerBound: a.lowerBound, proven: a.proven, movesUsed: a.best.moves, withinCapacity: a.best.excess <= tie }));
+      table = rows.map(({ moves, answer: a }) => ({
+        moves,
+        score: a.best.score,
+        lowerBound: a.lowerBound,
+        proven: a.proven,
+        movesUsed: a.best.moves,
+        withinCapacity: withinLimits(a.best),
+        largestLoadingPercent: largestLoadingPercent(p, a.best.choice),
+      }));
     }
     return { main, chosen, table };
   };
@@ -530,7 +647,8 @@ export function rebalanceInstallation(installation: Installation, study: unknown
   let { main, chosen, table } = searchAnswers();
   let { moves, solved } = outcomeOf(chosen.best.choice);
   // Where the re-solve puts a rating over that the fast model kept, that limit is tightened by as much and the search runs again.
-  for (let pass = 0; pass < RATING_PASSES && tightenRatedLimits(built, tree, ratingExcesses(ratingChanges(resolved.conditions, solved, tree))); pass++) {
+  const magnitudesAfter = (c: Int32Array) => magnitudesOf(sumQuantities(p, c), new Float64Array(p.quantityCount));
+  for (let pass = 0; pass < RATING_PASSES && tightenRatedLimits(built, tree, ratingExcesses(ratingChanges(resolved.conditions, solved, tree)), magnitudesAfter(chosen.best.choice)); pass++) {
     ({ main, chosen, table } = searchAnswers());
     ({ moves, solved } = outcomeOf(chosen.best.choice));
   }
@@ -574,13 +692,13 @@ export function rebalanceInstallation(installation: Installation, study: unknown
     // No move within a limit below the circuit count may be the limit's doing: a search without it says.
     const free = limit < n ? answerWithin(search, n, { ...o, method: 'local-search' }, tie, [main.best]).best : null;
     const unrated = built.rated.length ? answerWithin({ ...search, p: withoutRatings(built, resolved) }, limit, { ...o, method: 'local-search' }, tie, [main.best]).best : null;
-    if (free && free.excess <= tie && free.score < home.score - tie) notes.push(REBALANCE_NOTES.limitKeepsWiring(limit, free.moves, home.score, free.score));
-    else if (unrated && unrated.excess <= tie && unrated.score < home.score - tie) notes.push(REBALANCE_NOTES.ratingsKeepWiring(unrated.moves, home.score, unrated.score));
+    if (free && withinLimits(free) && free.score < home.score - tie) notes.push(REBALANCE_NOTES.limitKeepsWiring(limit, free.moves, home.score, free.score));
+    else if (unrated && withinLimits(unrated) && unrated.score < home.score - tie) notes.push(REBALANCE_NOTES.ratingsKeepWiring(unrated.moves, home.score, unrated.score));
     else notes.push(REBALANCE_NOTES.alreadyBest);
   }
   if (chosen.exactRan && !chosen.proven && chosen.budgetReached) notes.push(REBALANCE_NOTES.budgetReached(o.nodeBudget));
-  if (chosen.lowerBound === null && chosen.best.excess <= tie && n > 0) notes.push(REBALANCE_NOTES.noBound);
-  const excesses = chosen.best.excess > tie ? capacityExcesses(built, resolved, choice, tie) : [];
+  if (chosen.lowerBound === null && withinLimits(chosen.best) && n > 0) notes.push(REBALANCE_NOTES.noBound);
+  const excesses = withinLimits(chosen.best) ? [] : capacityExcesses(built, resolved, choice, tie);
   const ratings = ratingChanges(resolved.conditions, solved, tree);
   const ratingOver = ratingExcesses(ratings);
   if (excesses.length) {
@@ -606,9 +724,26 @@ export function rebalanceInstallation(installation: Installation, study: unknown
     ratingA: x.reading.ratingA,
   });
   const caused = ratingOver.filter((e) => e.change !== 'unchanged');
-  const causedKeys = new Set(caused.map((e) => `${e.board}|${e.condition}|${e.conductor}|${e.line ?? e.winding}`));
+  const keyOfExcess = (e: CapacityExcess) => `${e.board}|${e.condition}|${e.conductor}|${e.line ?? e.winding}`;
+  const causedKeys = new Set(caused.map(keyOfExcess));
   const keyOf = (x: RatingChange) => `${x.board}|${x.condition}|${x.reading.conductor}|${x.reading.at}`;
-  if (caused.length) notes.unshift(REBALANCE_NOTES.overRatingAfterMoves(ratings.filter((x) => causedKeys.has(keyOf(x))).map(ratingWords)));
+  // What the fast model has over too is the least overload the search found (a trade it chose); the rest is the re-solve's alone.
+  const afterMagnitudes = magnitudesAfter(choice);
+  const tradedKeys = new Set(caused.filter((e) => overInModel(built, tree, afterMagnitudes, e)).map(keyOfExcess));
+  const slipped = ratings.filter((x) => causedKeys.has(keyOf(x)) && !tradedKeys.has(keyOf(x)));
+  const traded = ratings.filter((x) => tradedKeys.has(keyOf(x)));
+  const homeNow = scoreChoice(p, homeChoice(p));
+  // Whether the move limit is what keeps an overload: the same search without it.
+  const wider = !withinLimits(chosen.best) && limit < n ? answerWithin(search, n, o, tie, [chosen.best]).best : null;
+  const movesForWithin = wider && withinLimits(wider) ? fewestMovesWithin(search, limit, wider, o, tie) : null;
+  if (movesForWithin !== null) notes.push(REBALANCE_NOTES.limitKeepsOverload(limit, movesForWithin));
+  else if (wider && wider.excess < chosen.best.excess - OVERLOAD_TIE)
+    notes.push(REBALANCE_NOTES.limitKeepsLargerOverload(limit, wider.moves, largestLoadingPercent(p, wider.choice)!));
+  const overload = overloadSummary(homeNow, chosen, loadingsOf(resolved.conditions, solved, tree, resolved, label), movesForWithin);
+  const limitWords = Number.isFinite(resolved.moveLimit) ? limit : null;
+  const least = overload && { beforePercent: overload.largestLoadingPercent.before, afterPercent: overload.largestLoadingPercent.after, proven: overload.proven, moveLimit: limitWords };
+  if (slipped.length) notes.unshift(REBALANCE_NOTES.overRatingAfterMoves(slipped.map(ratingWords)));
+  if (traded.length && least) notes.unshift(REBALANCE_NOTES.overRatingTraded(traded.map(ratingWords), least));
   // A line the study's own capacity (no higher than its rating) already notes as over now is not noted twice.
   const notedNow = (x: RatingChange) => {
     if (x.reading.conductor !== 'line' || !resolved.measuredBoards.includes(tree.names.indexOf(x.board))) return false;
@@ -616,7 +751,7 @@ export function rebalanceInstallation(installation: Installation, study: unknown
     return cap <= x.reading.ratingA && x.nowA > cap;
   };
   const stays = ratings.filter((x) => x.nowA > x.reading.ratingA && !causedKeys.has(keyOf(x)) && !notedNow(x));
-  if (stays.length) notes.push(REBALANCE_NOTES.overRatingNow(stays.map(ratingWords), moves.length > 0));
+  if (stays.length) notes.push(REBALANCE_NOTES.overRatingNow(stays.map(ratingWords), moves.length > 0, least));
   const voltages = voltageComparisons(resolved.conditions, solved, tree);
   const severalConditions = resolved.conditions.length > 1;
   for (const v of voltages)
@@ -662,6 +797,7 @@ export function rebalanceInstallation(installation: Installation, study: unknown
     voltages,
     capacityExceeded: [...excesses, ...ratingOver].sort((a, b) => b.overA - a.overA),
     ratingsKept: built.rated.length > 0,
+    overload,
     moveTable: o.moveTable || resolved.nearBestPercent !== null ? table : null,
     nearBest: resolved.nearBestPercent !== null ? { percent: resolved.nearBestPercent, bestScore: main.best.score } : null,
     search: {

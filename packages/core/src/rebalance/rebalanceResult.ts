@@ -47,10 +47,13 @@ export interface MoveTableRow {
   /** Moves the best answer of this row actually uses (≤ `moves`). */
   readonly movesUsed: number;
   /**
-   * False when no answer found with this many moves keeps every line within its capacity
-   * (then `proven` means none exists, and `score` is that of the answer exceeding it least).
+   * False when no answer found with this many moves keeps every current within its limit (the study's
+   * capacity, the file's ratings): then `score` is that of the answer with the least overload (`Overload`),
+   * and `proven` means no answer with this many moves has less.
    */
   readonly withinCapacity: boolean;
+  /** The largest loading of a current the study or the file limits, % of its limit (fast model); null where nothing is limited. */
+  readonly largestLoadingPercent: number | null;
 }
 
 /** A board the score does not read, solved before and after all the same (installations only). */
@@ -104,6 +107,28 @@ export interface CapacityExcess {
   readonly change: 'new' | 'worse' | 'unchanged';
 }
 
+/**
+ * How far over its limits an answer is. Each limited current is loaded |I| / limit: every rating the file gives
+ * (a line or neutral conductor, the supply transformer, a rated unit of a bank or open delta, as trivar solve
+ * judges them) and each measured board's lines against the study's capacity. The search ranks answers by the
+ * fast model's loadings: the largest over 100 % first, then the loadings over 100 % added, then the score, then
+ * the moves. The figures here are the network re-solve's.
+ */
+export interface Overload {
+  /** The largest loading of a limited current, %, now and after the moves. */
+  readonly largestLoadingPercent: { readonly before: number; readonly after: number };
+  /** Every loading over 100 % added, percentage points, now and after. */
+  readonly overSumPercent: { readonly before: number; readonly after: number };
+  /** True when the answer keeps every limit in the fast model (the present wiring does not). */
+  readonly within: boolean;
+  /** True when no arrangement within the move limit has a smaller overload in the fast model (branch-and-bound completed). */
+  readonly proven: boolean;
+  /** What the answer leaves most over, in words (the file's phase names), with its loading, %; null where nothing is. */
+  readonly worst: { readonly what: string; readonly loadingPercent: number; readonly limit: 'rating' | 'capacity' } | null;
+  /** Where the move limit keeps an overload that more moves remove: the moves an arrangement within every limit takes; else null. */
+  readonly movesForWithin: number | null;
+}
+
 /** One board's neutral with harmonics (the harmonic study at the file's loads), now and after the moves. */
 export interface HarmonicNeutralComparison {
   readonly board: string;
@@ -147,12 +172,16 @@ export interface RebalanceReport {
   readonly method: 'exact' | 'local-search';
   /** The method the caller asked for (`auto` chooses by the number of movable circuits). */
   readonly methodAsked: 'auto' | 'exact' | 'local-search';
+  /**
+   * True when no assignment within the move limit ranks better: a lower score, or where the answer is over a
+   * limit (`overload`), a smaller overload (then score, then moves).
+   */
   readonly proven: boolean;
   /** Scores in the fast model (lower is better; A for current figures, % for unbalance figures). */
   readonly score: {
     readonly before: number;
     readonly after: number;
-    /** No assignment within the move limit scores below this. */
+    /** No assignment within the move limit scores below this; null where the answer is over a limit (it is ranked by overload first). */
     readonly lowerBound: number | null;
     readonly gap: number | null;
     readonly gapPercent: number | null;
@@ -174,9 +203,15 @@ export interface RebalanceReport {
   readonly capacityExceeded: readonly CapacityExcess[];
   /**
    * True when the file rates something (a conductor's `ratingA`, the transformer, a bank's units): the search
-   * then kept each rated current within its rating, or no higher than now where it is over now (fast model).
+   * then keeps each rated current within its rating (fast model) where some arrangement can; where none can
+   * (the board is over a rating as things stand), it lowers the overload first (`overload`).
    */
   readonly ratingsKept: boolean;
+  /**
+   * Where the present wiring or the answer is over a limit (a study capacity or the file's rating, fast model):
+   * the overload measure the search lowers before the score. Null where both keep every limit.
+   */
+  readonly overload: Overload | null;
   readonly moveTable: readonly MoveTableRow[] | null;
   /** Fewest-moves mode: the % asked for and the best score it was measured from. */
   readonly nearBest: { readonly percent: number; readonly bestScore: number } | null;

@@ -19,6 +19,17 @@ interface RatingWords {
   readonly ratingA: number;
 }
 
+/** The overload the search left, for the notes: its largest loading now and after (network re-solve, %), whether proven least, the move limit (null: none). */
+interface LeastOverload {
+  readonly beforePercent: number;
+  readonly afterPercent: number;
+  readonly proven: boolean;
+  readonly moveLimit: number | null;
+}
+
+const limitWords = (moveLimit: number | null) => (moveLimit === null ? '' : ` with at most ${moveLimit} move${moveLimit === 1 ? '' : 's'}`);
+const loadingWords = (percent: number) => percent.toFixed(0);
+
 const whereWords = (x: RatingWords) => `${x.board ? ` at ${quoteText(x.board)}` : ''}${x.condition ? ` in ${quoteText(x.condition)}` : ''}`;
 
 const VERDICT_WORDS: Record<VoltageCheck['verdict'], string> = {
@@ -126,15 +137,39 @@ export const REBALANCE_NOTES = {
     `! These moves overload what the file rates: ${items
       .map((x) => `${x.what}${whereWords(x)} would carry ${x.afterA.toFixed(1)} A against its rating of ${x.ratingA.toFixed(1)} A (now ${x.nowA.toFixed(1)} A)`)
       .join('; ')}. trivar solve of the rewritten file warns of it. The search kept the fast model within the ratings; the network re-solve differs here: do not make these moves as they stand (pin a circuit, or lower the move limit, and run again).`,
-  /** Rated items over their rating as things stand, which the moves do not make worse. */
-  overRatingNow: (items: readonly RatingWords[], moved: boolean) =>
-    `Over its rating as things stand: ${items
+  /**
+   * Rated items the search itself put over their rating, or further over, to lower the largest overload
+   * (the fast model has them over too): where no arrangement keeps every rating.
+   */
+  overRatingTraded: (items: readonly RatingWords[], least: LeastOverload) =>
+    `! To lower the worst overload, these moves put what the file rates over its rating, or further over: ${items
+      .map((x) => `${x.what}${whereWords(x)} would carry ${x.afterA.toFixed(1)} A against its rating of ${x.ratingA.toFixed(1)} A (now ${x.nowA.toFixed(1)} A)`)
+      .join('; ')}. ${least.proven ? `Every arrangement${limitWords(least.moveLimit)} leaves something over its rating (proven)` : 'No arrangement found keeps every rating'}; with this one the most loaded current is at ${loadingWords(least.afterPercent)} % of its limit, against ${loadingWords(least.beforePercent)} % now. An overload remains: check each rating and its protection before the work, and reduce the load or upgrade what is over.`,
+  /** Rated items over their rating as things stand, and what the moves do to them. */
+  overRatingNow: (items: readonly RatingWords[], moved: boolean, least: LeastOverload | null) => {
+    const head = `Over its rating as things stand: ${items
       .map((x) => `${x.what}${whereWords(x)} carries ${x.nowA.toFixed(1)} A against its rating of ${x.ratingA.toFixed(1)} A${moved ? `, ${x.afterA.toFixed(1)} A after the moves${x.afterA <= x.ratingA ? ' (within it)' : ''}` : ''}`)
-      .join('; ')}. ${
-      !moved || items.some((x) => x.afterA > x.ratingA)
-        ? `${moved ? 'The search allowed no move set that makes it worse. ' : ''}Moving circuits has not brought it within: check the rating and the protection.`
-        : 'The moves bring it within.'
-    }`,
+      .join('; ')}.`;
+    if (moved && items.every((x) => x.afterA <= x.ratingA)) return `${head} The moves bring it within.`;
+    const lowered = moved && least !== null && loadingWords(least.afterPercent) !== loadingWords(least.beforePercent) && least.afterPercent < least.beforePercent;
+    if (lowered)
+      return `${head} The moves lower the largest loading from ${loadingWords(least.beforePercent)} % to ${loadingWords(least.afterPercent)} % of its limit${
+        least.proven ? `, and no arrangement${limitWords(least.moveLimit)} lowers the overload further (proven)` : ', the least overload found'
+      }; what stays over needs its rating and protection checked.`;
+    const why =
+      least?.moveLimit === 0
+        ? 'The move limit of 0 allows no move'
+        : least?.proven
+          ? `No arrangement${limitWords(least.moveLimit)} lowers the overload (proven)`
+          : 'Moving circuits has not brought it within';
+    return `${head} ${why}: check the rating and the protection.`;
+  },
+  /** Where more moves than the limit allows would lower the overload, though not remove it (fast model figures). */
+  limitKeepsLargerOverload: (limit: number, moves: number, widerPercent: number) =>
+    `The move limit of ${limit} keeps a larger overload: with ${moves} move${moves === 1 ? '' : 's'} the most loaded current would be at about ${loadingWords(widerPercent)} % of its limit (fast model).`,
+  /** Where the move limit keeps an overload that more moves remove. */
+  limitKeepsOverload: (limit: number, moves: number) =>
+    `The move limit of ${limit} keeps an overload: with ${moves} move${moves === 1 ? '' : 's'} every limited current would be within its limit, the file's ratings and the study's capacities (fast model). Raise the limit for that work order.`,
   /** A board outside its own voltage limits after the moves or now (`board` null on a one-board file, `condition` null with one condition). */
   voltagesOutside: (v: { limits: VoltageCheck['limits']; before: VoltageCheck; after: VoltageCheck }, board: string | null, condition: string | null, moved: boolean) => {
     const where = `${board ? ` at ${quoteText(board)}` : ''}${condition ? ` in ${quoteText(condition)}` : ''}`;

@@ -3,15 +3,21 @@
  * stops at a node budget and says so). Depth-first, largest circuits first,
  * children visited in order of their bound with the present option first, so
  * ties go to the answer with fewer moves; a node is cut when its polygon bound
- * (assignmentBounds.ts) cannot beat the best answer found, or when a line limit
- * is already out of reach.
+ * (assignmentBounds.ts) cannot beat the best answer found. Answers are compared
+ * as isBetter compares them (the least overload of the limits first, then the
+ * score, then fewer moves), and a node's bound is that key of its magnitude
+ * bounds, so a complete search proves the answer over that same order: where no
+ * answer keeps every limit, the least overload is proven, not only that none does.
  */
 import {
+  cannotBeat,
   contributionOffset,
   countMoves,
-  limitExcess,
+  isBetter,
+  largestOverload,
   magnitudesOf,
   MAX_OPTIONS,
+  overloadSum,
   type AssignmentProblem,
   type ScoredChoice,
 } from './assignmentProblem.js';
@@ -78,30 +84,24 @@ export function searchExact(p: AssignmentProblem, options: ExactSearchOptions): 
   const mags = new Float64Array(p.quantityCount);
   const leafSums = new Float64Array(q2);
   const childBound = new Float64Array((n + 1) * MAX_OPTIONS);
+  const childExcess = new Float64Array((n + 1) * MAX_OPTIONS);
+  const childExcessSum = new Float64Array((n + 1) * MAX_OPTIONS);
   const childOrder = new Int32Array((n + 1) * MAX_OPTIONS);
 
   let best = options.incumbent;
-  let bestFeasible = best.excess <= tie;
   let nodes = 0;
   let aborted = false;
 
   const consider = (leaf: Float64Array, leafAt: number, moves: number): void => {
     const m = magnitudesOf(leaf, mags, leafAt);
-    const excess = limitExcess(p, m);
-    if (excess > tie) {
-      if (!bestFeasible && excess < best.excess - tie) best = { choice: Int32Array.from(choice), score: p.score(m), excess, moves };
-      return;
-    }
-    const score = p.score(m);
-    if (!bestFeasible || score < best.score - tie || (score <= best.score + tie && moves < best.moves)) {
-      best = { choice: Int32Array.from(choice), score, excess, moves };
-      bestFeasible = true;
-    }
+    const found = { excess: largestOverload(p, m), excessSum: overloadSum(p, m), score: p.score(m), moves };
+    if (isBetter(found, best, tie)) best = { choice: Int32Array.from(choice), ...found };
   };
 
-  // A node whose bound cannot reach the best score, or only ties it with as many moves, is cut.
-  const cut = (bound: number, moves: number): boolean =>
-    bestFeasible && (bound > best.score + tie || (bound >= best.score - tie && moves >= best.moves));
+  /** Child a sorts before child b (slots in one node's list): the smaller key, the present option on equal keys. */
+  const before = (a: number, b: number, aHome: boolean): boolean =>
+    childExcess[a]! < childExcess[b]! ||
+    (childExcess[a] === childExcess[b] && (childExcessSum[a]! < childExcessSum[b]! || (childExcessSum[a] === childExcessSum[b] && (childBound[a]! < childBound[b]! || (childBound[a] === childBound[b] && aHome)))));
 
   const visit = (depth: number, moves: number): void => {
     if (aborted) return;
@@ -131,30 +131,36 @@ export function searchExact(p: AssignmentProblem, options: ExactSearchOptions): 
       const c = contributionOffset(p, i, k);
       for (let j = 0; j < q2; j++) sums[next + j] = sums[at + j]! + p.contributions[c + j]!;
       const lb = bounder.bounds(sums, next, depth + 1, mags, moveLimit - childMoves);
-      let reachable = true;
-      for (let j = 0; j < p.quantityCount; j++) if (lb[j]! > p.limits[j]! + tie) reachable = false;
-      if (!reachable) continue;
-      const bound = p.score(lb);
-      // Insertion by bound; on equal bounds the present option goes first, so it wins ties.
+      // Insertion by the bound's key; on equal keys the present option goes first, so it wins ties.
       let pos = count++;
-      while (pos > 0 && (childBound[slot + pos - 1]! > bound || (childBound[slot + pos - 1] === bound && k === home))) {
-        childBound[slot + pos] = childBound[slot + pos - 1]!;
-        childOrder[slot + pos] = childOrder[slot + pos - 1]!;
+      const at2 = slot + pos;
+      childExcess[at2] = largestOverload(p, lb);
+      childExcessSum[at2] = overloadSum(p, lb);
+      childBound[at2] = p.score(lb);
+      childOrder[at2] = k;
+      while (pos > 0 && before(slot + pos, slot + pos - 1, k === home)) {
+        swap(slot + pos, slot + pos - 1);
         pos--;
       }
-      childBound[slot + pos] = bound;
-      childOrder[slot + pos] = k;
     }
     for (let t = 0; t < count; t++) {
       const k = childOrder[slot + t]!;
       const childMoves = moves + (k === home ? 0 : 1);
-      if (cut(childBound[slot + t]!, childMoves)) continue;
+      const key = { excess: childExcess[slot + t]!, excessSum: childExcessSum[slot + t]!, score: childBound[slot + t]!, moves: childMoves };
+      if (cannotBeat(key, best, tie)) continue;
       const c = contributionOffset(p, i, k);
       for (let j = 0; j < q2; j++) sums[next + j] = sums[at + j]! + p.contributions[c + j]!;
       choice[i] = k;
       visit(depth + 1, childMoves);
       if (aborted) return;
     }
+  };
+
+  const swap = (a: number, b: number): void => {
+    [childExcess[a], childExcess[b]] = [childExcess[b]!, childExcess[a]!];
+    [childExcessSum[a], childExcessSum[b]] = [childExcessSum[b]!, childExcessSum[a]!];
+    [childBound[a], childBound[b]] = [childBound[b]!, childBound[a]!];
+    [childOrder[a], childOrder[b]] = [childOrder[b]!, childOrder[a]!];
   };
 
   visit(0, 0);

@@ -9,8 +9,13 @@ import {
   contributionOffset,
   countMoves,
   homeChoice,
+  isBetter,
+  largestOverload,
   limitExcess,
   magnitudesOf,
+  OVERLOAD_TIE,
+  overloadSum,
+  withinLimits,
   type AssignmentProblem,
   type ScoredChoice,
 } from './assignmentProblem.js';
@@ -59,6 +64,7 @@ class Walker {
   moves: number;
   score = 0;
   excess = 0;
+  excessSum = 0;
   private readonly trial: Float64Array;
   /** Magnitudes of `sums`: always current on the sparse path; scratch on the dense one. */
   private readonly mags: Float64Array;
@@ -92,17 +98,13 @@ class Walker {
     magnitudesOf(this.sums, this.mags);
     this.trialMags.set(this.mags);
     this.score = this.p.score(this.mags);
-    this.excess = limitExcess(this.p, this.mags);
+    this.excess = largestOverload(this.p, this.mags);
+    this.excessSum = overloadSum(this.p, this.mags);
   }
 
-  /** True when (score, excess, moves) beats the walker's present state. */
-  private beats(score: number, excess: number, moves: number): boolean {
-    const ok = excess <= this.tie;
-    const nowOk = this.excess <= this.tie;
-    if (ok !== nowOk) return ok;
-    if (!ok) return excess < this.excess - this.tie;
-    if (score < this.score - this.tie) return true;
-    return score <= this.score + this.tie && moves < this.moves;
+  /** True when (overload, score, moves) beats the walker's present state (isBetter's order). */
+  private beats(score: number, excess: number, excessSum: number, moves: number): boolean {
+    return isBetter({ excess, excessSum, score, moves }, this, this.tie);
   }
 
   moveDelta(i: number, k: number): number {
@@ -130,10 +132,11 @@ class Walker {
     // Dense problems never take the sparse path, so `mags` may serve as scratch here.
     magnitudesOf(t, this.mags);
     const score = p.score(this.mags);
-    const excess = limitExcess(p, this.mags);
-    if (!this.beats(score, excess, moves)) return false;
+    const excess = largestOverload(p, this.mags);
+    const excessSum = overloadSum(p, this.mags);
+    if (!this.beats(score, excess, excessSum, moves)) return false;
     this.sums.set(t);
-    return this.accept(i, ki, j, kj, moves, score, excess);
+    return this.accept(i, ki, j, kj, moves, score, excess, excessSum);
   }
 
   /** The same, reading and writing only the quantities the two circuits reach. */
@@ -147,11 +150,12 @@ class Walker {
     this.trialMagnitudes(li);
     if (j >= 0) this.trialMagnitudes(this.touched![j]!);
     const score = p.score(this.trialMags);
-    const excess = limitExcess(p, this.trialMags);
-    const ok = this.beats(score, excess, moves);
+    const excess = largestOverload(p, this.trialMags);
+    const excessSum = overloadSum(p, this.trialMags);
+    const ok = this.beats(score, excess, excessSum, moves);
     this.endTrial(li, ok);
     if (j >= 0) this.endTrial(this.touched![j]!, ok);
-    return ok && this.accept(i, ki, j, kj, moves, score, excess);
+    return ok && this.accept(i, ki, j, kj, moves, score, excess, excessSum);
   }
 
   private startTrial(list: Int32Array): void {
@@ -194,12 +198,13 @@ class Walker {
     }
   }
 
-  private accept(i: number, ki: number, j: number, kj: number, moves: number, score: number, excess: number): true {
+  private accept(i: number, ki: number, j: number, kj: number, moves: number, score: number, excess: number, excessSum: number): true {
     this.choice[i] = ki;
     if (j >= 0) this.choice[j] = kj;
     this.moves = moves;
     this.score = score;
     this.excess = excess;
+    this.excessSum = excessSum;
     return true;
   }
 
@@ -212,7 +217,7 @@ class Walker {
     if (!this.touched) {
       const was = this.choice[i]!;
       this.force(i, k);
-      const s = this.score + this.excess;
+      const s = this.score + limitExcess(this.p, this.mags);
       this.force(i, was);
       return s;
     }
@@ -235,7 +240,7 @@ class Walker {
   }
 
   snapshot(): ScoredChoice {
-    return { choice: Int32Array.from(this.choice), score: this.score, excess: this.excess, moves: this.moves };
+    return { choice: Int32Array.from(this.choice), score: this.score, excess: this.excess, excessSum: this.excessSum, moves: this.moves };
   }
 }
 
@@ -354,19 +359,18 @@ const NEAR_BEST = 0.002;
  */
 const PAIR_BUDGET = 10;
 
+/** Within NEAR_BEST of the best: its score where both keep every limit, else its largest overload. */
+function nearBest(w: Walker, best: ScoredChoice): boolean {
+  if (withinLimits(w)) return w.score <= best.score * (1 + NEAR_BEST);
+  return w.excess <= best.excess * (1 + NEAR_BEST) + OVERLOAD_TIE;
+}
+
 /** Best answer found from each start, with kicks. */
 export function searchLocal(p: AssignmentProblem, starts: readonly Int32Array[], options: LocalSearchOptions): ScoredChoice {
   const random = seededRandom(options.seed);
   const { moveLimit, tie } = options;
   let best: ScoredChoice | null = null;
-  const better = (a: ScoredChoice, b: ScoredChoice | null): boolean => {
-    if (!b) return true;
-    const aOk = a.excess <= tie;
-    const bOk = b.excess <= tie;
-    if (aOk !== bOk) return aOk;
-    if (!aOk) return a.excess < b.excess - tie;
-    return a.score < b.score - tie || (a.score <= b.score + tie && a.moves < b.moves);
-  };
+  const better = (a: ScoredChoice, b: ScoredChoice | null): boolean => !b || isBetter(a, b, tie);
   const movable = [...Array(p.circuitCount).keys()].filter((i) => p.optionCounts[i]! > 1);
   const budget: PairBudget = { left: PAIR_WORK };
   for (const start of starts) {
@@ -389,7 +393,7 @@ export function searchLocal(p: AssignmentProblem, starts: readonly Int32Array[],
       if (w.moves + w.moveDelta(i, k) <= moveLimit) w.force(i, k);
     }
     descendSingles(w, moveLimit);
-    if (w.excess <= tie && w.score <= best!.score * (1 + NEAR_BEST) && pairDescents++ < PAIR_BUDGET) descend(w, moveLimit, budget);
+    if (nearBest(w, best!) && pairDescents++ < PAIR_BUDGET) descend(w, moveLimit, budget);
     const found = w.snapshot();
     if (better(found, best)) best = found;
     else for (let i = 0; i < p.circuitCount; i++) if (w.choice[i] !== best!.choice[i]) w.force(i, best!.choice[i]!);

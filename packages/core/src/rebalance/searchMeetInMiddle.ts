@@ -8,7 +8,7 @@
  * milliamps this way, where one- and two-circuit moves stall near a tenth of
  * an amp.
  */
-import { contributionOffset, magnitudesOf, limitExcess, type AssignmentProblem, type ScoredChoice } from './assignmentProblem.js';
+import { contributionOffset, isBetter, largestOverload, magnitudesOf, overloadSum, type AssignmentProblem, type ScoredChoice } from './assignmentProblem.js';
 import { seededRandom } from './seededRandom.js';
 
 export interface MeetInMiddleOptions {
@@ -143,11 +143,8 @@ export function searchMeetInMiddle(p: AssignmentProblem, start: ScoredChoice, o:
       if (choice[i] !== p.home[i]) moves++;
     }
     magnitudesOf(sums, mags);
-    const candidate = { choice, score: p.score(mags), excess: limitExcess(p, mags), moves };
-    const ok = candidate.excess <= o.tie;
-    const bestOk = best.excess <= o.tie;
-    if ((ok && !bestOk) || (ok === bestOk && (candidate.score < best.score - o.tie || (candidate.score <= best.score + o.tie && candidate.moves < best.moves))))
-      best = candidate;
+    const candidate = { choice, score: p.score(mags), excess: largestOverload(p, mags), excessSum: overloadSum(p, mags), moves };
+    if (isBetter(candidate, best, o.tie)) best = candidate;
   }
   return best;
 }
