@@ -47,4 +47,13 @@ describe('supply-path estimates on single-phase and split-phase boards', () => {
     expect(text).toMatch(/≈ Q_C\/S_sc,X = 5\.9 kvar \(at the corrected board's voltage\) \/ 2880 kVA = 0\.21 % \(Q_C·X\/V²: the reactance, not \|Z\|\); solved 0\.21 %/);
     expect(text).not.toContain('1288 kVA');
   });
+
+  it('a sub-board of a single-phase installation: every feeder line and neutral back to the source', () => {
+    const r = runTrivar(['correct', `${DIR}/allotment-single-installation.yaml`, '--board', 'Pump shed']);
+    expect(r.code).toBe(0);
+    const text = flat(r.stdout);
+    // 0.004 + 0.006 + 0.004 + 0.009 = 0.023 Ω; S_sc,X = 230²/0.023 = 2300 kVA.
+    expect(text).toContain('X_path = 0.0230 Ω, the reactance of the loop out on the line and back on the neutral (S_sc,X = 2300 kVA');
+    expect(text).toMatch(/≈ Q_C\/S_sc,X = \d+\.\d kvar \(at the corrected board's voltage\) \/ 2300 kVA/);
+  });
 });
