@@ -6,7 +6,7 @@
  * on the neutral returns there. Hand figures beside every assertion.
  */
 import { describe, expect, it } from 'vitest';
-import { correctBoard, normaliseBoard, parseBoard, shortCircuitVA, studyHarmonics, verifyCorrection, type EquipmentGroup } from '@trivar/core';
+import { buildBoardReport, correctBoard, normaliseBoard, parseBoard, renderReportMarkdown, shortCircuitVA, solveBoardModel, studyHarmonics, verifyCorrection, type EquipmentGroup } from '@trivar/core';
 import { expectClose } from '../support/tolerance.js';
 
 type Pair = 'A-N' | 'B-N' | 'C-N' | 'A-B';
@@ -78,6 +78,14 @@ describe('single-phase board: the neutral is half the supply loop', () => {
     expectClose(r.resonanceCapacitance.supplyReactanceOhm!, LOOP_X, { rel: 1e-12, abs: 0 }, 'X_path');
     const byHand = Math.sqrt(230 ** 2 / LOOP_X / (r.resonanceCapacitance.totalKvar * 1000));
     expectClose(r.resonanceOrder!, byHand, { rel: 1e-12, abs: 0 }, 'h');
+  });
+
+  it('the report gives the loop: S_sc 1394 kVA, X_path 0.0120 Ω of line and neutral', () => {
+    const spec = parseBoard(pumpHutSpec());
+    const correction = correctBoard(pumpHut, { arrangement: 'star-bank', target: { pf: 0.95 } });
+    const text = renderReportMarkdown(buildBoardReport({ spec, result: solveBoardModel(pumpHut), correction }), 'pump-hut').markdown.replace(/\\_/g, '_');
+    expect(text).toContain('**Short-circuit power at the board:** 1394 kVA');
+    expect(text).toContain('**Reactance of the supply path:** 0.0120 Ω, the loop out on the line and back on the neutral (S_sc,X = 4408 kVA)');
   });
 
   it('the harmonic scan of the same capacitor peaks where the estimate says, and its S_sc is the loop’s', () => {
