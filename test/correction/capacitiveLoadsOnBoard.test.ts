@@ -91,7 +91,7 @@ describe('a board led by its own fixed capacitor bank', () => {
     expect(text).toContain('√((S_sc,X + Q_L)/Q_C) = 11.98');
     // One line of prose, wrapped at 100 columns: read with its line breaks as spaces.
     expect(text.replace(/\s+/g, ' ')).toContain('of leading loads already on the board (Fixed bank left on)');
-    expect(text.replace(/\s+/g, ' ')).toContain("X_path = 0.0224 Ω, the supply path's reactance (S_sc,X = 7139 kVA");
+    expect(text.replace(/\s+/g, ' ')).toContain("X_path = 0.0224 Ω per line, the supply path's reactance (S_sc,X = 7139 kVA");
     expect(text).not.toContain('not estimated');
     // Within 10 % of the 11th: warned, naming the capacitance that resonates (none of it added here).
     const w = report.verification.warnings.find((x) => x.code === 'resonance')!;

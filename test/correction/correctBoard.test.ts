@@ -174,9 +174,11 @@ describe('verifyCorrection: voltage rise and resonance of a bank on a transforme
   ];
   const v = verifyCorrection(board, { equipment: bank });
 
-  it('short-circuit power S_T/u_k and the rise estimate Qc/S_sc', () => {
+  it('short-circuit power S_T/u_k and the rise estimate Qc/S_sc,X (the reactance raises the voltage, not |Z|)', () => {
     expectClose(v.voltageRise.shortCircuitKVA!, 1000 / 0.06, { rel: 1e-12, abs: 0 }, 'S_sc');
-    expectClose(v.voltageRise.estimatePercent!, (100 * v.voltageRise.capacitorKvar) / (1000 / 0.06), { rel: 1e-12, abs: 0 }, 'estimate');
+    // X/R 8: S_sc,X = 16.667 MVA × √(1 + 1/64) = 16.796 MVA; ΔV/V ≈ Qc·X/V² = Qc/S_sc,X.
+    expectClose(v.voltageRise.reactanceShortCircuitKVA!, (1000 / 0.06) * Math.sqrt(1 + 1 / 64), { rel: 1e-12, abs: 0 }, 'S_sc,X');
+    expectClose(v.voltageRise.estimatePercent!, (100 * v.voltageRise.capacitorKvar) / ((1000 / 0.06) * Math.sqrt(1 + 1 / 64)), { rel: 1e-12, abs: 0 }, 'estimate');
     // The bank gives a little over 300 kvar because it raises its own voltage.
     expect(v.voltageRise.capacitorKvar).toBeGreaterThan(300);
     expect(v.voltageRise.estimatePercent!).toBeGreaterThan(1.8);

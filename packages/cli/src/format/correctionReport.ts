@@ -296,6 +296,26 @@ function toleranceWhere(v: CorrectionVerification): string {
   return ` — judged at ${v.metering.point === 'origin' ? 'the origin' : `the incomer of ${v.metering.point}`}, where the target is measured${atBoard}`;
 }
 
+/**
+ * X_path in words: the loop of line and neutral on a single-phase board; per line elsewhere, with the
+ * neutral named where part of the capacitors' current returns on it.
+ */
+function pathReactanceWords(v: CorrectionVerification): string {
+  const c = v.resonanceCapacitance;
+  const x = `${fixed(c.supplyReactanceOhm ?? 0, 4)} Ω`;
+  if (v.after.board.system === 'single-phase') return `${x}, the reactance of the loop out on the line and back on the neutral`;
+  const neutral = c.neutralReactanceOhm === null ? '' : `, and ${fixed(c.neutralReactanceOhm, 4)} Ω in the neutral for the part of the capacitor current that returns on it`;
+  const unequal = c.unequalCurrents ? '; S_sc,X weighed by the current these unequal capacitors put in each conductor' : '';
+  return `${x} per line, the supply path's reactance${neutral}${unequal}`;
+}
+
+/** The steady rise estimate: ≈ Q_C·X/V² from the path's reactance (a capacitor's current is reactive), or why there is none. */
+function voltageRiseEstimateWords(vr: CorrectionVerification['voltageRise']): string {
+  if (vr.shortCircuitKVA === null) return 'ideal source (none)';
+  if (vr.estimatePercent === null) return "not estimated, the supply path has no reactance (a capacitor's current raises the voltage by about I·X)";
+  return `≈ Q_C/S_sc,X = ${fixed(vr.capacitorKvar, 1)} kvar (at the corrected board's voltage) / ${fixed(vr.reactanceShortCircuitKVA ?? 0, 0)} kVA = ${fixed(vr.estimatePercent, 2)} % (Q_C·X/V²: the reactance, not |Z|)`;
+}
+
 /** The supply resonance line: its estimate and what it is worked from, or why there is none. */
 function resonanceWords(v: CorrectionVerification, detuned: boolean): string {
   const head = 'parallel resonance with the supply';
@@ -313,7 +333,7 @@ function resonanceWords(v: CorrectionVerification, detuned: boolean): string {
     ...(c.onBoardKvar > 0 ? [`${fixed(c.onBoardKvar, 1)} kvar of leading loads already on the board (${c.loadsOnBoard.join(', ')}), taken as capacitance`] : []),
   ];
   const reactors = c.reactorKvar > 0 ? `; Q_L = ${fixed(c.reactorKvar, 1)} kvar of reactors added` : '';
-  const path = `; X_path = ${fixed(c.supplyReactanceOhm ?? 0, 4)} Ω, the supply path's reactance (S_sc,X = ${fixed(c.reactanceShortCircuitKVA ?? 0, 0)} kVA; its resistance damps the peak but hardly moves it)`;
+  const path = `; X_path = ${pathReactanceWords(v)} (S_sc,X = ${fixed(c.reactanceShortCircuitKVA ?? 0, 0)} kVA; its resistance damps the peak but hardly moves it)`;
   const near = v.resonanceNearOrders.length ? `; within 10 % of order ${v.resonanceNearOrders.join(', ')}` : '';
   return `${head} at about h = ${formula} = ${fixed(v.resonanceOrder, 2)} (× ${v.after.board.frequencyHz} Hz = ${fixed(v.resonanceOrder * v.after.board.frequencyHz, 0)} Hz)${near}; Q_C = ${parts.join(' + ')}${reactors}${path}`;
 }
@@ -328,7 +348,7 @@ function checksBlock(v: CorrectionVerification, detuned = false): string {
   );
   const vr = v.voltageRise;
   out.push(
-    `steady voltage rise: ${vr.estimatePercent === null ? 'ideal source (none)' : `≈ Qc/S_sc = ${fixed(vr.capacitorKvar, 1)} kvar (at the corrected board's voltage) / ${fixed(vr.shortCircuitKVA ?? 0, 0)} kVA = ${fixed(vr.estimatePercent, 2)} %`}; solved ${fixed(vr.solvedPercent, 2)} %; flag above ${vr.limitPercent} %${vr.flagged ? '  ← FLAGGED' : ''}`,
+    `steady voltage rise: ${voltageRiseEstimateWords(vr)}; solved ${fixed(vr.solvedPercent, 2)} %; flag above ${vr.limitPercent} %${vr.flagged ? '  ← FLAGGED' : ''}`,
   );
   out.push(resonanceWords(v, detuned));
   if (v.lightLoad) {

@@ -82,7 +82,7 @@ export const CORRECTION_DEFAULTS = {
   continuousVoltageLimit: 1.1,
   /** Discharge time before a step may be switched on again, s, by practice (capacitorDischarge.ts: the rule each follows). */
   dischargeTimeS: { iec: CAPACITOR_DISCHARGE.iec.seconds, 'north-american': CAPACITOR_DISCHARGE['north-american'].seconds },
-  /** Steady rise ΔV/V ≈ Qc/S_sc flagged above 3 % (common practice, no source). */
+  /** Steady rise flagged above 3 %, solved or estimated as ΔV/V ≈ Q_C/S_sc,X (common practice, no source). */
   voltageRiseLimitPercent: 3,
   /**
    * Harmonic orders a supply resonance is flagged near (within ±10 %, resonanceNearFraction) where the

@@ -427,18 +427,34 @@ export interface ResonanceCapacitance {
   readonly reactorKvar: number;
   /** addedKvar + onBoardKvar. */
   readonly totalKvar: number;
-  /** Reactance of the supply path to the board (source and every feeder on the way), ohm per line; null where it has none. */
+  /**
+   * Reactance of the supply path to the board (source and every feeder on the way), ohm: on a single-phase
+   * board the loop, line and neutral; otherwise per line. Null where it has none.
+   */
   readonly supplyReactanceOhm: number | null;
-  /** n·V²/X of that path, kVA: the short-circuit power the order is worked from (its reactance alone). */
+  /**
+   * Reactance of the neutral back to the source, ohm, where part of the capacitors' current returns on it
+   * (always on a single-phase board, where `supplyReactanceOhm` includes it; on split-phase and 4-wire boards
+   * the share of line-to-neutral capacitors that does not cancel there); null where none does.
+   */
+  readonly neutralReactanceOhm: number | null;
+  /** S_sc,X = Q_C²/Q_L of that path as the capacitors' current meets it, kVA (n·V²/X_path for a single loop or a balanced bank): what the order is worked from. */
   readonly reactanceShortCircuitKVA: number | null;
+  /**
+   * True where the capacitors' currents are unequal, so S_sc,X is not n·V²/X_path but Q_C²/Σ X·|I|² with the
+   * current each conductor carries (a lone line-to-line capacitor on a three-phase board loads two lines).
+   */
+  readonly unequalCurrents: boolean;
 }
 
 export interface VoltageRise {
   /** Net capacitive output considered, kvar. */
   readonly capacitorKvar: number;
-  /** Short-circuit power at the board from the source and feeder impedance, kVA; null on an ideal source. */
+  /** Short-circuit power at the board from the source and feeder impedance (line and neutral on a single-phase board), kVA; null on an ideal source. */
   readonly shortCircuitKVA: number | null;
-  /** ΔV/V ≈ Qc/S_sc, %; null on an ideal source. */
+  /** S_sc,X from the supply path's reactance as the capacitors' current meets it, kVA; null where the path has no reactance. */
+  readonly reactanceShortCircuitKVA: number | null;
+  /** ΔV/V ≈ Q_C/S_sc,X = Q_C·X/V², %: a capacitor's current is reactive, so the path's reactance raises the voltage, not |Z|; null where the path has no reactance. */
   readonly estimatePercent: number | null;
   /** Largest rise of a line-to-neutral voltage magnitude in the solved board, % of nominal. */
   readonly solvedPercent: number;

@@ -5,13 +5,14 @@
  * the supply resonance estimate, and the light-load check of the fixed part.
  */
 import * as z from 'zod';
-import type { Board, PhaseId } from '../board/boardModel.js';
+import type { Board, LoadBranch, PhaseId } from '../board/boardModel.js';
 import type { BoardResult } from '../analysis/boardResult.js';
 import { analyseSolution, readTargetFigures, type TargetReadings } from '../analysis/analyseSolution.js';
 import { compileBoard, solveCompiledBoard, solveNetwork, type NetworkSolution, type SolveOptions } from '../network/solveNetwork.js';
 import { resolveSolveOptions } from '../network/solveOptions.js';
-import { abs, type ComplexValue } from '../complex.js';
-import { reactanceShortCircuitVA, supplyPathImpedance } from '../network/installationModel.js';
+import type { ComplexValue } from '../complex.js';
+import { boardShortCircuitVA, neutralPathImpedance, shortCircuitPathImpedance, supplyPathImpedance } from '../network/installationModel.js';
+import { capacitorPathReactance, type CapacitorPathReactance } from '../network/capacitorPathReactance.js';
 import { lightLoadSchema, targetSchema, ARRANGEMENTS, type Arrangement, type CapacitanceToleranceSpec, type LightLoadSpec, type TargetSpec } from './correctionSpec.js';
 import { CORRECTION_DEFAULTS, toleranceFractions } from './correctionDefaults.js';
 import { judgeTarget, lineTanBounds, resolveTarget, TARGET_SLACK } from './correctionTarget.js';
@@ -61,11 +62,8 @@ const verifyOptionsSchema = z.strictObject({
 export const resonanceNearOrders = (order: number): number[] =>
   CORRECTION_DEFAULTS.resonanceWatchedOrders.filter((h) => Math.abs(order - h) <= CORRECTION_DEFAULTS.resonanceNearFraction * h);
 
-function shortCircuitVA(board: Board): number | null {
-  // On a sub-board, through every feeder above it back to the source.
-  const z = abs(supplyPathImpedance(board));
-  return z === 0 ? null : (board.phases.length * board.nominalLineToNeutralV ** 2) / z;
-}
+/** The branches of the loads added to `board` to make `equipped` (the equipment), every part as `equipped` has it. */
+const addedBranches = (board: Board, equipped: Board): LoadBranch[] => equipped.loads.slice(board.loads.length).flatMap((l) => l.branches);
 
 /**
  * The shunt capacitance the supply's inductance resonates with: the capacitors added, and every
@@ -73,34 +71,57 @@ function shortCircuitVA(board: Board): number | null {
  * capacitance at its solved output, as the added capacitors are. Added reactors are kept apart:
  * in parallel with the supply inductance they raise the order, h = √((S_sc,X + Q_L)/Q_C) (the
  * single-node estimate, common practice, no source; reactive loads other than capacitive ones are
- * left out, as the usual √(S_sc/Q_C) leaves them). S_sc,X is the path's reactance alone
- * (reactanceShortCircuitVA), so h = √(X_C/X_path) also behind a cable feeder whose R is not small.
+ * left out, as the usual √(S_sc/Q_C) leaves them). S_sc,X is the path's reactance alone as those
+ * capacitors' current meets it (capacitorPathReactance.ts: the line and the neutral on a single-phase
+ * board, the neutral's share where their currents do not cancel there), so h = √(X_C/X_path) also behind
+ * a cable feeder whose R is not small.
  */
-function resonanceCapacitance(board: Board, branches: readonly BranchSizing[], after: BoardResult): ResonanceCapacitance {
+function resonanceCapacitance(board: Board, corrected: Board, branches: readonly BranchSizing[], after: BoardResult): ResonanceCapacitance {
   const addedKvar = branches.reduce((s, b) => s + (b.element === 'capacitor' ? b.kvarAtAppliedV : 0), 0);
   const reactorKvar = branches.reduce((s, b) => s + (b.element === 'reactor' ? -b.kvarAtAppliedV : 0), 0);
   const leading = after.loads.filter((l) => l.origin === 'board' && l.kvar < 0);
   const onBoardKvar = leading.reduce((s, l) => s - l.kvar, 0);
-  const sscX = reactanceShortCircuitVA(board);
-  const reactance = supplyPathImpedance(board).im;
+  const leadingNames = new Set(leading.map((l) => l.name));
+  const capacitors = [...corrected.loads.filter((l) => l.origin === 'board' && leadingNames.has(l.name)).flatMap((l) => l.branches), ...addedBranches(board, corrected)];
+  const path = capacitorPathReactance(board, capacitors);
   return {
     addedKvar,
     onBoardKvar,
     loadsOnBoard: leading.map((l) => l.name),
     reactorKvar,
     totalKvar: addedKvar + onBoardKvar,
-    supplyReactanceOhm: sscX === null ? null : reactance,
-    reactanceShortCircuitKVA: sscX === null ? null : sscX / 1000,
+    ...pathFigures(board, path),
   };
 }
 
-function voltageRise(board: Board, capacitorKvar: number, before: BoardResult, after: BoardResult, limitPercent: number): VoltageRise {
-  const ssc = shortCircuitVA(board);
-  const estimatePercent = ssc === null ? null : (100 * capacitorKvar * 1000) / ssc;
+/** X_path (the line and neutral loop on a single-phase board, per line otherwise), the neutral's X where the capacitors' current uses it, and S_sc,X. */
+function pathFigures(board: Board, path: CapacitorPathReactance | null): Pick<ResonanceCapacitance, 'supplyReactanceOhm' | 'neutralReactanceOhm' | 'reactanceShortCircuitKVA' | 'unequalCurrents'> {
+  if (path === null) return { supplyReactanceOhm: null, neutralReactanceOhm: null, reactanceShortCircuitKVA: null, unequalCurrents: false };
+  const x = (board.system === 'single-phase' ? shortCircuitPathImpedance(board) : supplyPathImpedance(board)).im;
+  // n·V²/X_path is S_sc,X for a single loop or a balanced bank; anything else is weighed by the current each conductor carries.
+  const balanced = (board.phases.length * board.nominalLineToNeutralV ** 2) / x;
+  return {
+    supplyReactanceOhm: x,
+    neutralReactanceOhm: path.throughNeutral ? (neutralPathImpedance(board)?.im ?? null) : null,
+    reactanceShortCircuitKVA: path.shortCircuitVA / 1000,
+    unequalCurrents: Math.abs(path.shortCircuitVA - balanced) > 1e-9 * balanced,
+  };
+}
+
+/**
+ * The steady rise: a capacitor's current is reactive, so it raises the voltage by about I·X of the path
+ * it flows in, ΔV/V ≈ Q_C·X/V² = Q_C/S_sc,X (S_sc,X from the reactance as that current meets it). The
+ * classic Q_C/S_sc with S_sc from |Z| overstates it wherever R is not small beside X.
+ */
+function voltageRise(board: Board, capacitors: readonly LoadBranch[], capacitorKvar: number, before: BoardResult, after: BoardResult, limitPercent: number): VoltageRise {
+  const ssc = boardShortCircuitVA(board);
+  const sscX = capacitorPathReactance(board, capacitors)?.shortCircuitVA ?? null;
+  const estimatePercent = sscX === null ? null : (100 * capacitorKvar * 1000) / sscX;
   const solvedPercent = Math.max(...after.phases.map((p, k) => (100 * (p.voltage.magnitude - before.phases[k]!.voltage.magnitude)) / judgedNominalOf(board).ln));
   return {
     capacitorKvar,
     shortCircuitKVA: ssc === null ? null : ssc / 1000,
+    reactanceShortCircuitKVA: sscX === null ? null : sscX / 1000,
     estimatePercent,
     solvedPercent,
     limitPercent,
@@ -226,10 +247,10 @@ export function verifyCorrection(board: Board, options: VerifyCorrectionOptions)
   }
 
   const capacitorKvar = branches.reduce((s, b) => s + b.kvarAtAppliedV, 0);
-  const rise = voltageRise(board, capacitorKvar, before, after, riseLimit);
+  const rise = voltageRise(board, addedBranches(board, corrected), capacitorKvar, before, after, riseLimit);
   if (rise.flagged) warn('voltage-rise', warningText.voltageRise('the bank at the design load', Math.max(rise.estimatePercent ?? -Infinity, rise.solvedPercent), riseLimit), rise.solvedPercent, riseLimit);
-  const ssc = shortCircuitVA(board);
-  const resonance = resonanceCapacitance(board, branches, after);
+  const ssc = boardShortCircuitVA(board);
+  const resonance = resonanceCapacitance(board, corrected, branches, after);
   const sscX = resonance.reactanceShortCircuitKVA === null ? null : resonance.reactanceShortCircuitKVA * 1000;
   const resonanceOrder = sscX !== null && resonance.totalKvar > 0 ? Math.sqrt((sscX + resonance.reactorKvar * 1000) / (resonance.totalKvar * 1000)) : null;
   const nearOrders = resonanceOrder === null ? [] : resonanceNearOrders(resonanceOrder);
@@ -258,7 +279,7 @@ export function verifyCorrection(board: Board, options: VerifyCorrectionOptions)
     });
     const fixedOnly = equipment.map((g) => ({ ...g, branches: g.branches.map((b) => ({ ...b, susceptanceS: b.fixedSusceptanceS })) }));
     const fixedKvar = branchSizings(fixedOnly, lightCorrected, lightAfter).reduce((sum, b) => sum + b.kvarAtAppliedV, 0);
-    const lightRise = voltageRise(board, fixedKvar, lightBefore, lightAfter, riseLimit);
+    const lightRise = voltageRise(board, addedBranches(lightBoard, lightCorrected), fixedKvar, lightBefore, lightAfter, riseLimit);
     if (leadingLines.length) warn('light-load-leading', warningText.lightLoadLeading(leadingLines.map(label)));
     // A fixed part that is inductive (a compensator's reactors stay connected) makes lines lag more at light load:
     // said where a line then lags below the target and more than it did without the equipment.

@@ -155,8 +155,9 @@ export interface ScanCombination {
   /** Effective fundamental output of what is on, at nominal voltage, three-phase kvar. */
   readonly capacitorKvar: number;
   /**
-   * h = √(X_C/X_path) = √(S_sc,X/Q_c), S_sc,X from the supply path's reactance alone (the classic √(S_sc/Q_c) with
-   * S_sc from |Z| assumes X ≫ R); null without a source reactance, without capacitors, or for a detuned bank (the
+   * h = √(X_C/X_path) = √(S_sc,X/Q_c), S_sc,X from the supply path's reactance alone as the parts on put their
+   * current in it, the line and the neutral on a single-phase board (capacitorPathReactance.ts; the classic
+   * √(S_sc/Q_c) with S_sc from |Z| assumes X ≫ R); null without a source reactance, without capacitors, or for a detuned bank (the
    * formula does not apply).
    */
   readonly formulaOrder: number | null;
@@ -170,7 +171,7 @@ export interface ScanCombination {
 export interface ResonanceScan {
   readonly orders: readonly number[];
   readonly pairs: readonly string[];
-  /** Short-circuit power at the board from the source and feeder impedance, kVA; null on an ideal source. */
+  /** Short-circuit power at the board from the source and feeder impedance (line and neutral on a single-phase board), kVA; null on an ideal source. */
   readonly shortCircuitKVA: number | null;
   /** Orders a resonance is checked against: those injected or on the supply, else the odd orders 3 … 19 (HARMONICS_DEFAULTS.watchedOrders). */
   readonly checkedOrders: readonly number[];

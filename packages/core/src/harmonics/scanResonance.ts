@@ -11,10 +11,10 @@
  * is the compiled circuit of the board's installation (scanEvaluator.ts): the
  * supply as the file earths it, and on a sub-board every feeder back to the source.
  */
-import { abs } from '../complex.js';
 import type { Board } from '../board/boardModel.js';
 import type { NetworkSolution } from '../network/solveNetwork.js';
-import { reactanceShortCircuitVA, supplyPathImpedance } from '../network/installationModel.js';
+import { boardShortCircuitVA } from '../network/installationModel.js';
+import { capacitorPathReactance } from '../network/capacitorPathReactance.js';
 import { createBoardScanEvaluator, type ScanEvaluator } from './scanEvaluator.js';
 import { HARMONICS_DEFAULTS } from './harmonicsDefaults.js';
 import { stateKey, type BankModel, type HarmonicModel } from './harmonicModel.js';
@@ -35,17 +35,19 @@ export function combinationLabel(bank: BankModel | null, steps: readonly boolean
   return `${fixed ? 'fixed + ' : ''}step${on.length > 1 ? 's' : ''} ${on.join('+')}`;
 }
 
-/** Short-circuit power at the board from the impedance back to the source, VA; null on an ideal source. */
+/** Short-circuit power at the board from the impedance back to the source (line and neutral on a single-phase board), VA; null on an ideal source. */
 export function shortCircuitVA(board: Board): number | null {
   assertBoardModel(board);
-  const z = abs(supplyPathImpedance(board));
-  return z === 0 ? null : (board.phases.length * board.nominalLineToNeutralV ** 2) / z;
+  // On a single-phase board the loop is the line and the neutral (see shortCircuitPathImpedance).
+  return boardShortCircuitVA(board);
 }
+
+/** The board loads that are the bank's parts on: the fixed part and the steps on. */
+const bankPartsOn = (bank: BankModel, steps: readonly boolean[]): number[] => [...(bank.fixedLoad === null ? [] : [bank.fixedLoad]), ...bank.stepLoads.filter((_, k) => steps[k])];
 
 /** Effective fundamental output of the bank parts that are on, at nominal voltage, kvar. */
 export function bankKvarOn(board: Board, bank: BankModel, steps: readonly boolean[]): number {
-  const parts = [...(bank.fixedLoad === null ? [] : [bank.fixedLoad]), ...bank.stepLoads.filter((_, k) => steps[k])];
-  return parts.reduce((s, l) => s + board.loads[l]!.branches.reduce((t, b) => t - b.sNominal.im, 0), 0) / 1000;
+  return bankPartsOn(bank, steps).reduce((s, l) => s + board.loads[l]!.branches.reduce((t, b) => t - b.sNominal.im, 0), 0) / 1000;
 }
 
 /** The evaluator of a single board's solution (the installation with one board). */
@@ -211,13 +213,14 @@ export function scanResonance(fundamental: NetworkSolution, model: HarmonicModel
     if (firstOf[c] !== c) values[c] = values[firstOf[c]!]!;
   });
   const ssc = shortCircuitVA(board);
-  // The estimate beside the scan: from the path's reactance, as the scan's peak sits (see reactanceShortCircuitVA).
-  const sscX = reactanceShortCircuitVA(board);
+  // The estimate beside the scan: from the path's reactance as the parts on meet it, as the scan's peak sits (capacitorPathReactance.ts).
+  const sscXOf = (steps: readonly boolean[]) => (bank ? capacitorPathReactance(board, bankPartsOn(bank, steps).flatMap((l) => board.loads[l]!.branches))?.shortCircuitVA ?? null : null);
   const shared = new Map<number, Pick<ScanCombination, 'impedanceOhm' | 'peaks'>>();
   const combinations = combos.map((steps, c): ScanCombination => {
     const kvar = bank ? bankKvarOn(board, bank, steps) : 0;
     const label = combinationLabel(bank, steps);
-    const formulaOrder = sscX !== null && kvar > 0 && (bank?.detuning ?? 0) === 0 ? Math.sqrt(sscX / (kvar * 1000)) : null;
+    const sscX = kvar > 0 && (bank?.detuning ?? 0) === 0 ? sscXOf(steps) : null;
+    const formulaOrder = sscX !== null ? Math.sqrt(sscX / (kvar * 1000)) : null;
     const same = shared.get(firstOf[c]!);
     if (same) return { steps, label, capacitorKvar: kvar, formulaOrder, impedanceOhm: same.impedanceOhm, peaks: same.peaks, nearOrders: ordersNear(same.peaks, options.checkedOrders) };
     const { curves, peaks } = refinedPeaks(evaluator, grid, values[c]!, (out) => evaluator.impedances(steps, out, 0));

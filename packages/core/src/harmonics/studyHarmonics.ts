@@ -8,13 +8,14 @@ import { assertBoardModel } from '../board/modelGuards.js';
 import { assertViableBoard } from '../analysis/viableOperatingPoint.js';
 import { normaliseBoard } from '../board/normaliseBoard.js';
 import type { Board, BoardLoad } from '../board/boardModel.js';
-import { abs, add } from '../complex.js';
+import { abs } from '../complex.js';
 import { InputError, inputIssue } from '../errors.js';
 import { compileBoard, solveCompiledBoard, solveNetwork, type NetworkSolution, type SolveOptions } from '../network/solveNetwork.js';
 import { resolveSolveOptions, SOLVE_OPTION_KEYS } from '../network/solveOptions.js';
 import { checkListArgument, checkNumberArgument, checkOptionKeys } from '../_internal/argumentChecks.js';
 import { CompiledNetworkCache } from '../network/compiledNetworkCache.js';
 import { NEGLIGIBLE_OHMS } from '../network/installationCircuit.js';
+import { shortCircuitPathImpedance } from '../network/installationModel.js';
 import { addInstalledBank, installedBankLayout, ordersPresent, resolveHarmonicModel, stateKey, type BankModel, type HarmonicModel } from './harmonicModel.js';
 import { solveAtOrder } from './networkAtOrder.js';
 import { readLines, readLineToLine, readNeutral, type OrderSolution } from './readHarmonics.js';
@@ -125,7 +126,8 @@ function aboveLineCause(neutralFundamentalA: number, neutralTriplenA: number, tr
 export function tddCheck(board: Board, model: HarmonicModel, lines: readonly HarmonicLineReading[]): TddCheck | null {
   if (!model.pcc) return null;
   const demand = model.pcc.demandCurrentA ?? Math.max(...lines.map((l) => l.current.fundamental));
-  const zSource = abs(add(board.sourceImpedance, board.lineImpedance));
+  // I_sc through the path a fault at the board closes: line and neutral on a single-phase board (shortCircuitPathImpedance).
+  const zSource = abs(shortCircuitPathImpedance(board));
   // Below NEGLIGIBLE_OHMS the circuit merges the source as a direct connection: no ratio from it, as for an ideal source.
   const ratio = model.pcc.shortCircuitRatio ?? (zSource >= NEGLIGIBLE_OHMS && demand > 0 ? board.nominalLineToNeutralV / zSource / demand : null);
   if (ratio === null || !(demand > 0)) return null;
@@ -299,7 +301,7 @@ export function assumptions(board: Board, model: HarmonicModel, otherBanks = fal
         ]
       : []),
     model.background.length ? 'background supply distortion at each phase with h × the phase angle of its EMF' : 'no background supply distortion (the supply EMF is sinusoidal)',
-    ...(model.pcc && model.pcc.shortCircuitRatio === null && !(abs(add(board.sourceImpedance, board.lineImpedance)) >= NEGLIGIBLE_OHMS)
+    ...(model.pcc && model.pcc.shortCircuitRatio === null && !(abs(shortCircuitPathImpedance(board)) >= NEGLIGIBLE_OHMS)
       ? [harmonicsWording.noShortCircuitRatio]
       : []),
   ];

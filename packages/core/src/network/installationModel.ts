@@ -6,7 +6,7 @@
  * the installation — which is how a correction sized on a sub-board re-solves
  * the whole installation.
  */
-import { add, scale, ZERO, type ComplexValue } from '../complex.js';
+import { abs, add, scale, ZERO, type ComplexValue } from '../complex.js';
 import type { BankInService, Board, BoardLoad, Installation } from '../board/boardModel.js';
 import { conventionsOf } from '../board/conventions/boardConventions.js';
 import { assertInstallationModel, assertBoardModel } from '../board/modelGuards.js';
@@ -116,14 +116,54 @@ export function supplyPathImpedance(board: Board): ComplexValue {
 }
 
 /**
+ * Series impedance of the neutral from a board back to the source star point: the board's own
+ * feeder neutral, every feeder neutral on the way up, the service feeder's, and the source's
+ * star-point impedance (its zero-sequence part, which a neutral current flows through). Null on a
+ * board no neutral reaches.
+ */
+export function neutralPathImpedance(board: Board): ComplexValue | null {
+  if (!board.hasNeutral) return null;
+  const place = board.installation;
+  if (!place || place.boardIndex === 0) return add(board.neutralImpedance, board.sourceStarImpedance ?? ZERO);
+  const { installation } = place;
+  const main = installation.main;
+  let z = add(main.neutralImpedance, main.sourceStarImpedance ?? ZERO);
+  for (let b = place.boardIndex; b !== 0; b = installation.subBoards[b - 1]!.fedFrom) {
+    z = add(z, b === place.boardIndex ? board.neutralImpedance : installation.subBoards[b - 1]!.feeder.neutralImpedance);
+  }
+  return z;
+}
+
+/**
+ * The impedance a short circuit at the board, and a bank's current, meet on the way back to the source.
+ * On a single-phase 2-wire board the only loop is the line out and the neutral back (the source's
+ * impedance, as a single-phase source is modelled, sits in the line): line path + neutral path. On
+ * split-phase and three-phase boards the figure is the line path alone, as a line-to-line fault or a
+ * balanced bank sees it: their currents sum to zero and leave the neutral out (capacitorPathReactance.ts
+ * weighs the neutral in for a bank whose currents do not).
+ */
+export function shortCircuitPathImpedance(board: Board): ComplexValue {
+  const line = supplyPathImpedance(board);
+  const neutral = board.system === 'single-phase' ? neutralPathImpedance(board) : null;
+  return neutral ? add(line, neutral) : line;
+}
+
+/** Short-circuit power at the board, n·V²/|Z| of shortCircuitPathImpedance, VA; null where the path has no impedance (an ideal source). */
+export function boardShortCircuitVA(board: Board): number | null {
+  const z = abs(shortCircuitPathImpedance(board));
+  return z === 0 ? null : (board.phases.length * board.nominalLineToNeutralV ** 2) / z;
+}
+
+/**
  * The short-circuit power the supply path's reactance alone gives, n·V²/X_path, VA: what a parallel
  * resonance of shunt capacitors with the supply is worked from, h = √(X_C/X_path) = √(S_sc,X/Q_C).
  * The classic √(S_sc/Q_C) takes S_sc from |Z|, which is right only where X ≫ R: behind a long or small
  * cable feeder R is not small, |Z| overstates the path's inductance and names too low an order (a bank
  * whose scan peaks near the 11th estimated at 8.4). The resistance damps the peak; it hardly moves it.
+ * X_path is shortCircuitPathImpedance's: the line and the neutral on a single-phase board.
  * null where the path has no reactance (an ideal source, or resistance only).
  */
 export function reactanceShortCircuitVA(board: Board): number | null {
-  const x = supplyPathImpedance(board).im;
+  const x = shortCircuitPathImpedance(board).im;
   return x > 0 ? (board.phases.length * board.nominalLineToNeutralV ** 2) / x : null;
 }

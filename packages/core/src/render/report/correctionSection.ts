@@ -225,6 +225,16 @@ function capacitanceWords(c: CorrectionReport['verification']['resonanceCapacita
 }
 
 /** The resonance of the recommended capacitors with the supply, when the study could estimate it. */
+/** X_path: the loop of line and neutral on a single-phase board; per line elsewhere, with the neutral where part of the capacitors' current returns on it. */
+function pathReactanceWords(report: CorrectionReport): string {
+  const c = report.verification.resonanceCapacitance;
+  const x = `${fixed(c.supplyReactanceOhm ?? 0, 4)} Ω`;
+  if (report.verification.before.board.system === 'single-phase') return `${x}, the loop out on the line and back on the neutral`;
+  const neutral = c.neutralReactanceOhm === null ? '' : `, and ${fixed(c.neutralReactanceOhm, 4)} Ω in the neutral for the part of the capacitor current that returns on it`;
+  const unequal = c.unequalCurrents ? '; S_sc,X weighed by the current these unequal capacitors put in each conductor' : '';
+  return `${x} per line${neutral}${unequal}`;
+}
+
 export function resonanceSection(report: CorrectionReport): ReportSection | null {
   const h = report.verification.resonanceOrder;
   if (h === null) return null;
@@ -243,7 +253,7 @@ export function resonanceSection(report: CorrectionReport): ReportSection | null
         items: [
           ['Short-circuit power at the board', sc === null ? '—' : `${fixed(sc, 0)} kVA`],
           ['Capacitive output considered', capacitanceWords(report.verification.resonanceCapacitance)],
-          ['Reactance of the supply path', c.supplyReactanceOhm === null ? '—' : `${fixed(c.supplyReactanceOhm, 4)} Ω (S_sc,X = ${fixed(c.reactanceShortCircuitKVA ?? 0, 0)} kVA)`],
+          ['Reactance of the supply path', c.supplyReactanceOhm === null ? '—' : `${pathReactanceWords(report)} (S_sc,X = ${fixed(c.reactanceShortCircuitKVA ?? 0, 0)} kVA)`],
           [`Parallel resonance with the supply, h = ${c.reactorKvar > 0 ? '√((Ssc,X + QL)/Qc)' : '√(Xc/Xpath)'}`, `order ${fixed(h, 2)} (${fixed(f, 0)} Hz)`],
         ],
       },
