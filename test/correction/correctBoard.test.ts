@@ -57,6 +57,19 @@ describe('correctBoard on an uneven 4-wire board behind a 160 kVA transformer', 
     expect(ideal.branches.filter((b) => b.element === 'reactor').every((b) => b.inductanceMH! > 0)).toBe(true);
   });
 
+  it("a compensator's reactors withhold the Q_C/S_sc,X rise estimate; the solved rise still decides the flag", () => {
+    const withKiln = makeBoard('three-phase-4wire', [...bakeryLoads, { name: 'kiln element', connection: 'A-B', kW: 15, pf: 1 }], { transformer });
+    const compensator = correctBoard(withKiln, { arrangement: 'balancing-compensator', target: { pf: 1 } }).verification.voltageRise;
+    // Capacitors raise the lines they sit on and reactors lower theirs: the net kvar estimates neither.
+    expect(compensator.estimateWithheld).toBe('reactors');
+    expect(compensator.estimatePercent).toBeNull();
+    expect(compensator.flagged).toBe(compensator.solvedPercent > compensator.limitPercent);
+    // A capacitor-only bank keeps its first-order estimate.
+    const bank = correctBoard(withKiln, { arrangement: 'star-bank', target: { pf: 0.95 } }).verification.voltageRise;
+    expect(bank.estimateWithheld).toBeNull();
+    expect(bank.estimatePercent).toBeGreaterThan(0);
+  });
+
   it('a board that already meets the target: nothing to add, said as a warning', () => {
     const board = makeBoard('three-phase-4wire', [{ name: 'heaters', connection: 'ABC-star', kW: 20, pf: 0.99 }]);
     const report = correctBoard(board, { arrangement: 'star-bank', target: { pf: 0.95 } });

@@ -312,6 +312,7 @@ function pathReactanceWords(v: CorrectionVerification): string {
 /** The steady rise estimate: ≈ Q_C·X/V² from the path's reactance (a capacitor's current is reactive), or why there is none. */
 function voltageRiseEstimateWords(vr: CorrectionVerification['voltageRise']): string {
   if (vr.shortCircuitKVA === null) return 'ideal source (none)';
+  if (vr.estimateWithheld === 'reactors') return 'not estimated from Q_C/S_sc,X: the reactors lower the lines they sit on while the capacitors raise theirs, so the net kvar gives neither line\'s rise';
   if (vr.estimatePercent === null) return "not estimated, the supply path has no reactance (a capacitor's current raises the voltage by about I·X)";
   return `≈ Q_C/S_sc,X = ${fixed(vr.capacitorKvar, 1)} kvar (at the corrected board's voltage) / ${fixed(vr.reactanceShortCircuitKVA ?? 0, 0)} kVA = ${fixed(vr.estimatePercent, 2)} % (Q_C·X/V²: the reactance, not |Z|)`;
 }

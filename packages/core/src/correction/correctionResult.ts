@@ -456,6 +456,11 @@ export interface VoltageRise {
   readonly reactanceShortCircuitKVA: number | null;
   /** ΔV/V ≈ Q_C/S_sc,X = Q_C·X/V², %: a capacitor's current is reactive, so the path's reactance raises the voltage, not |Z|; null where the path has no reactance. */
   readonly estimatePercent: number | null;
+  /**
+   * Why there is no estimate although the path has reactance: 'reactors' where the equipment holds reactors as
+   * well as capacitors (a balancing compensator), which lower some lines while the capacitors raise others; else null.
+   */
+  readonly estimateWithheld: 'reactors' | null;
   /** Largest rise of a line-to-neutral voltage magnitude in the solved board, % of nominal. */
   readonly solvedPercent: number;
   readonly limitPercent: number;

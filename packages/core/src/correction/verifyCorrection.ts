@@ -116,13 +116,19 @@ function pathFigures(board: Board, path: CapacitorPathReactance | null): Pick<Re
 function voltageRise(board: Board, capacitors: readonly LoadBranch[], capacitorKvar: number, before: BoardResult, after: BoardResult, limitPercent: number): VoltageRise {
   const ssc = boardShortCircuitVA(board);
   const sscX = capacitorPathReactance(board, capacitors)?.shortCircuitVA ?? null;
-  const estimatePercent = sscX === null ? null : (100 * capacitorKvar * 1000) / sscX;
+  // A compensator's reactors lower the lines they sit on while its capacitors raise theirs: the net kvar
+  // over S_sc,X is neither line's rise (hillside-workshop's compensator: 0.91 % against 4.52 % solved), so
+  // only the solved rise is given. A detuned branch (reactor in series) draws leading vars: not one of these.
+  const largest = Math.max(0, ...capacitors.map((b) => Math.abs(b.sNominal.im)));
+  const withReactors = capacitors.some((b) => b.sNominal.im > 1e-9 * largest);
+  const estimatePercent = sscX === null || withReactors ? null : (100 * capacitorKvar * 1000) / sscX;
   const solvedPercent = Math.max(...after.phases.map((p, k) => (100 * (p.voltage.magnitude - before.phases[k]!.voltage.magnitude)) / judgedNominalOf(board).ln));
   return {
     capacitorKvar,
     shortCircuitKVA: ssc === null ? null : ssc / 1000,
     reactanceShortCircuitKVA: sscX === null ? null : sscX / 1000,
     estimatePercent,
+    estimateWithheld: withReactors ? 'reactors' : null,
     solvedPercent,
     limitPercent,
     flagged: Math.max(estimatePercent ?? -Infinity, solvedPercent) > limitPercent,
