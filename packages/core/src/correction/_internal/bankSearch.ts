@@ -252,10 +252,15 @@ export function leastCostOverWindows(searches: readonly (() => SetBuild)[]): Set
   let best: SetBuild | null = null;
   for (const search of searches) {
     const build = search();
-    if (best === null || beats(build, best)) best = build;
+    // The same build found again in a wider set stays judged on the narrower one (where it sits off-centre only because the set is wider).
+    if (best === null || (!sameUnits(build, best) && beats(build, best))) best = build;
   }
   return best!;
 }
+
+/** Whether two builds buy the same units in the same places. */
+const sameUnits = (a: SetBuild, b: SetBuild) =>
+  a.units === b.units && a.designF.every((f, i) => f === b.designF[i]) && a.fixedF.every((f, i) => f === b.fixedF[i]) && (a.balanced?.choice.unit ?? null) === (b.balanced?.choice.unit ?? null);
 
 /** Whether build `a` ranks before `b`, each on its own windows (across kinds where one has trims and the other not). */
 function beats(a: SetBuild, b: SetBuild): boolean {
