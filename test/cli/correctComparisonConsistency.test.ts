@@ -100,16 +100,16 @@ describe('trivar correct: one target, one story', () => {
   });
 
   it('with single-line steps allowed, the cidery is built from a few larger units that meet the target re-solved', () => {
-    // Two single-phase 6.67 kvar units on each of A-B and C-A (cost 26.68 + 4 × 2 = 34.7), where equal steps
-    // alone take 33 units of 1 kvar (cost 99.0, below): ranked on cost once both meet the target.
+    // A three-phase 6.25 kvar unit, a single-phase 10 kvar on A-B and 8.33 kvar on C-A (cost 24.58 + 3 × 2 =
+    // 30.6), where equal steps alone take 33 units of 1 kvar (cost 99.0, below): ranked on cost once both meet the target.
     const r = JSON.parse(runTrivar(['correct', '-', '--arrangement', 'delta-bank', '--json'], CIDERY_LOADS).stdout) as {
       status: string;
       selection: { units: number; cost: { value: number } };
       verification: { tolerance: { low: { check: { met: boolean } }; high: { check: { leadingLines: string[] } } } };
       warnings: { code: string }[];
     };
-    expect(r.selection.units).toBe(4);
-    expect(r.selection.cost.value).toBeCloseTo(34.68, 9);
+    expect(r.selection.units).toBe(3);
+    expect(r.selection.cost.value).toBeCloseTo(30.58, 9);
     expect(r.status).toBe('meets-target');
     expect(r.verification.tolerance.low.check.met).toBe(true);
     expect(r.verification.tolerance.high.check.leadingLines).toEqual([]);

@@ -1,8 +1,8 @@
 /**
  * Which build from units the study keeps. A delta bank on a board whose line C is already near unity has
  * an equal bank's capacitance range only 0.5 % wide, which only small units land in: ranked by how well
- * a build sits in its window before cost, the bank was 21 single-phase 2 kvar units where 4 of 6.67 kvar
- * meet the target too. Now builds are ranked by meeting the target (re-solved), then cost and units, and
+ * a build sits in its window before cost, the bank was 21 single-phase 2 kvar units where 3 units (a
+ * three-phase 7.5 kvar step and a 10 kvar unit on each of A-B and C-A) meet the target too. Now builds are ranked by meeting the target (re-solved), then cost and units, and
  * only then by how centrally they sit; equal steps are kept unless single-line steps save more than
  * their allowance (CORRECTION_DEFAULTS.singleLineStepsKvar).
  */
@@ -36,14 +36,16 @@ describe('a delta bank on a board with line C near unity', () => {
   const report = correctBoard(board, { arrangement: 'delta-bank', target: { pf: 0.95 } });
   const selection = report.selection!;
 
-  it('is built from 4 units, not 21', () => {
-    expect(selection.units).toBe(4);
-    // Two single-phase 6.67 kvar 440 V units on each of A-B and C-A: 26.68 kvar + 4 × 2 = 34.68.
+  it('is built from 3 units, not 21', () => {
+    expect(selection.units).toBe(3);
+    // A three-phase 7.5 kvar 440 V unit and a single-phase 10 kvar 440 V unit on each of A-B and C-A:
+    // 27.5 kvar + 3 × 2 = 33.5.
     expect(selection.steps.map((s) => [s.part, s.branches.join(' '), s.units, s.unit.ratedKvar, s.unit.ratedV])).toEqual([
-      ['trim', 'A-B', 2, 6.67, 440],
-      ['trim', 'C-A', 2, 6.67, 440],
+      ['balanced', 'A-B B-C C-A', 1, 7.5, 440],
+      ['trim', 'A-B', 1, 10, 440],
+      ['trim', 'C-A', 1, 10, 440],
     ]);
-    expect(selection.cost.value).toBeCloseTo(34.68, 9);
+    expect(selection.cost.value).toBeCloseTo(33.5, 9);
     expect(report.warnings.map((w) => w.code)).not.toContain('many-small-units');
   });
 

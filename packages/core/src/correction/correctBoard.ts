@@ -278,14 +278,15 @@ export function correctBoard(board: Board, spec: unknown): CorrectionReport {
    * The build from units, proved by re-solving. Two candidates: the unit choice's least-cost build and,
    * where it differs, its equal-steps one (BuildPreference). The windows they are chosen in are
    * first-order, so the re-solve ranks them: verdict, then the limits it shows passed, then cost (a tie
-   * to the least-cost build). The second is re-solved only where it could win.
+   * to the least-cost build). The second is chosen and re-solved only where the first falls short.
    */
   const provenBuildOf = (sized: SizedEquipment, how: { heldBranches?: readonly string[]; besideReactors?: 'up' } = {}): Build => {
     const cheapest = buildOf(sized, selectUnits(sized, how));
+    // Proved: it meets the target across the tolerance and passes no limit; the second is for a build that does not.
+    if (cheapest.verdict === 'meets' && limitsBroken(cheapest) === 0) return cheapest;
     const alternative = selectUnits(sized, how, 'equal-steps');
     const cheapestSelection = cheapest.selection!;
     if (stepsBought(alternative) === stepsBought(cheapestSelection)) return cheapest;
-    if (cheapest.verdict === 'meets' && limitsBroken(cheapest) === 0 && alternative.cost.value >= cheapestSelection.cost.value) return cheapest;
     const equalSteps = buildOf(sized, alternative);
     const rank = (b: Build) => [BUILD_VERDICT_RANK[b.verdict], limitsBroken(b), b.cost ?? Infinity];
     const [a, c] = [rank(equalSteps), rank(cheapest)];

@@ -220,9 +220,9 @@ function offCentre(designF: readonly number[], needs: readonly Need[]): number {
 const STEPS_SHORT = 6;
 
 /**
- * A key as builds of the two kinds (equal steps only; with single-line steps) are compared: steps short
- * weigh only between equal builds, since single-line steps follow the load line by line, never in
- * equal thirds (their coarser following is in `singleLineStepsKvar` instead).
+ * A key as builds with single-line steps are compared, with each other and with equal builds: steps
+ * short weigh only between equal builds, since single-line steps follow the load line by line, never
+ * in equal thirds (their coarser following is in `singleLineStepsKvar` instead).
  */
 const acrossKinds = (key: readonly number[]) => key.map((x, k) => (k === STEPS_SHORT ? 0 : x));
 
@@ -262,10 +262,10 @@ export function leastCostOverWindows(searches: readonly (() => SetBuild)[]): Set
 const sameUnits = (a: SetBuild, b: SetBuild) =>
   a.units === b.units && a.designF.every((f, i) => f === b.designF[i]) && a.fixedF.every((f, i) => f === b.fixedF[i]) && (a.balanced?.choice.unit ?? null) === (b.balanced?.choice.unit ?? null);
 
-/** Whether build `a` ranks before `b`, each on its own windows (across kinds where one has trims and the other not). */
+/** Whether build `a` ranks before `b`, each on its own windows (steps short only between two equal builds). */
 function beats(a: SetBuild, b: SetBuild): boolean {
   const [ka, kb] = [rankKey(a, a.needs), rankKey(b, b.needs)];
-  return (a.trims.length > 0) === (b.trims.length > 0) ? better(ka, kb) : better(acrossKinds(ka), acrossKinds(kb));
+  return a.trims.length === 0 && b.trims.length === 0 ? better(ka, kb) : better(acrossKinds(ka), acrossKinds(kb));
 }
 
 /**
@@ -380,6 +380,7 @@ function trimsMayWin(
   rules: SetRules,
   balanced: { choice: UnitChoice; count: number } | null,
   leastTrimKvar: readonly number[],
+  leastTrimKvarPerF: readonly number[],
   mayWin: (bound: number[]) => boolean,
 ): boolean {
   const n = needs.length;
@@ -397,22 +398,32 @@ function trimsMayWin(
     let past = 0;
     let missSum = 0;
     let trimKvar = kvar;
+    // The trims' least nameplate where every trimmed branch reaches its window (tier 0): the capacitance
+    // it lacks at the least kvar per farad any of its trim units has.
+    let fittingTrimKvar = kvar;
+    let trimmedCanFit = true;
     let trims = 0;
     for (let i = 0; i < n; i++) {
+      const need = needs[i]!;
       if (s & (1 << i)) {
         trimKvar = trimKvar + leastTrimKvar[i]!;
         trims++;
-        worst = Math.max(worst, leastTierFrom(baseF, needs[i]!));
+        const least = leastTierFrom(baseF, need);
+        worst = Math.max(worst, least);
+        if (least !== 0) trimmedCanFit = false;
+        const lacking = need.minF - 1e-9 * Math.max(need.nominalF, need.minF, 1e-30) - baseF;
+        fittingTrimKvar = fittingTrimKvar + Math.max(leastTrimKvar[i]!, lacking * leastTrimKvarPerF[i]! * (1 - 1e-9));
         continue;
       }
       const tier = tiers[i]!;
       worst = Math.max(worst, tier);
       if (tier === 5) past = 1;
-      missSum = missSum + miss(baseF, needs[i]!, tier);
+      missSum = missSum + miss(baseF, need, tier);
     }
-    const cost = trimKvar + rules.unitCostKvar * (units + trims) + rules.singleLineStepsKvar;
-    const bound = [0, Number(trims > rules.outputs), past, 0, worst, Math.round(missSum * 20), 0, cost, units + trims, leastNegativeSteps(rules, n), 0];
-    if (mayWin(bound)) return true;
+    const fixedCost = rules.unitCostKvar * (units + trims) + rules.singleLineStepsKvar;
+    const key = (w: number, kvarBought: number) => [0, Number(trims > rules.outputs), past, 0, w, Math.round(missSum * 20), 0, kvarBought + fixedCost, units + trims, leastNegativeSteps(rules, n), 0];
+    // Where every trimmed branch may fit, a build either does (and buys what they lack) or leaves one at tier 1 or worse.
+    if (trimmedCanFit ? mayWin(key(worst, fittingTrimKvar)) || mayWin(key(Math.max(worst, 1), trimKvar)) : mayWin(key(worst, trimKvar))) return true;
   }
   return false;
 }
@@ -495,7 +506,7 @@ export function searchSet(
   // the best trimmed build so far and, across kinds, the best equal one (equal builds win ties).
   const trimmedMayWin = (bound: number[]) => (bestTrimmed === null || better(bound, bestTrimmedKey)) && (best === null || better(bound, acrossKinds(bestKey)));
   const consider = (build: SetBuild) => {
-    const k = rankKey(build, build.needs);
+    const k = build.trims.length ? acrossKinds(rankKey(build, build.needs)) : rankKey(build, build.needs);
     if (build.trims.length) {
       if (!bestTrimmed || better(k, bestTrimmedKey)) {
         bestTrimmed = build;
@@ -531,8 +542,9 @@ export function searchSet(
     return counts;
   };
   const leastTrimKvar = needs.map((_, i) => (trimChoices[i] ?? []).reduce((least, c) => Math.min(least, c.unit.ratedKvar), Infinity));
+  const leastTrimKvarPerF = needs.map((_, i) => (trimChoices[i] ?? []).reduce((least, c) => Math.min(least, c.unit.ratedKvar / c.elementF), Infinity));
   const withTrims = (balanced: { choice: UnitChoice; count: number } | null) => {
-    if (pruning && (best !== null || bestTrimmed !== null) && !trimsMayWin(needs, rules, balanced, leastTrimKvar, trimmedMayWin)) return;
+    if (pruning && (best !== null || bestTrimmed !== null) && !trimsMayWin(needs, rules, balanced, leastTrimKvar, leastTrimKvarPerF, trimmedMayWin)) return;
     const baseF = balanced ? balanced.count * balanced.choice.elementF : 0;
     const baseUnits = balanced ? balanced.count : 0;
     const trims = needs.flatMap((need, i) => {
