@@ -21,7 +21,7 @@
  * Among builds that fit equally well, the least cost = nameplate kvar + a fixed
  * kvar-equivalent per unit (weights in `CORRECTION_DEFAULTS`), then the fewest units, and only
  * then the build that sits most centrally in its windows (see bankSearch.ts). The study
- * (correctBoard.ts) re-solves the build chosen, and the equal-steps one beside it where that differs.
+ * (correctBoard.ts) re-solves the build chosen, and the equal-steps one where that falls short.
  */
 import * as z from 'zod';
 import { CONTROLLER_OUTPUTS, PRACTICES, capacitorUnitSchema, type CapacitanceToleranceSpec, type CapacitorUnitSpec, type ControllerSpec, type Practice, type TargetSpec } from './correctionSpec.js';
