@@ -32,6 +32,10 @@ const CIDERY_LOADS = [
   '',
 ].join('\n');
 
+/** Single-line (trim) steps turned off in a board file: equal steps only. */
+const EQUAL_STEPS_ONLY = ['correction:', '  bank: { trimSteps: none }', ''].join('\n');
+const CIDERY_EQUAL_STEPS = CIDERY_LOADS + EQUAL_STEPS_ONLY;
+
 /** The cidery with harmonic sources, a third harmonic that counts, and the detuning given or left to trivar. */
 const harmonicCidery = (detuning: string) =>
   [
@@ -95,8 +99,26 @@ describe('trivar correct: one target, one story', () => {
     expect(oneLine(auto)).toContain('14 % is tried first because the third harmonic is significant');
   });
 
+  it('with single-line steps allowed, the cidery is built from a few larger units that meet the target re-solved', () => {
+    // A three-phase 6.25 kvar unit, a single-phase 10 kvar on A-B and 8.33 kvar on C-A (cost 24.58 + 3 × 2 =
+    // 30.6), where equal steps alone take 33 units of 1 kvar (cost 99.0, below): ranked on cost once both meet the target.
+    const r = JSON.parse(runTrivar(['correct', '-', '--arrangement', 'delta-bank', '--json'], CIDERY_LOADS).stdout) as {
+      status: string;
+      selection: { units: number; cost: { value: number } };
+      verification: { tolerance: { low: { check: { met: boolean } }; high: { check: { leadingLines: string[] } } } };
+      warnings: { code: string }[];
+    };
+    expect(r.selection.units).toBe(3);
+    expect(r.selection.cost.value).toBeCloseTo(30.58, 9);
+    expect(r.status).toBe('meets-target');
+    expect(r.verification.tolerance.low.check.met).toBe(true);
+    expect(r.verification.tolerance.high.check.leadingLines).toEqual([]);
+    expect(r.warnings.map((x) => x.code)).not.toContain('many-small-units');
+  });
+
   it('a bank of many small units forced by a narrow capacitance range says why and what to relax', () => {
-    const r = runTrivar(['correct', '-', '--arrangement', 'delta-bank', '--json'], CIDERY_LOADS);
+    // Equal steps only (single-line steps turned off in the file): the equal bank's range is all there is.
+    const r = runTrivar(['correct', '-', '--arrangement', 'delta-bank', '--json'], CIDERY_EQUAL_STEPS);
     const report = JSON.parse(r.stdout) as { selection: { units: number; nameplateKvar: number; selections: { branch: string; minimumCapacitanceUF: number; maximumCapacitanceUF: number }[] }; warnings: { code: string; message: string; value: number; threshold: number }[] };
     // 33 single-phase 1 kvar units (11 per branch): 66 kvar-equivalent of per-unit cost beside 33 kvar.
     expect(report.selection.units).toBe(33);
@@ -110,11 +132,12 @@ describe('trivar correct: one target, one story', () => {
     expect(w.threshold).toBe(5);
     expect(w.message).toContain('the bank takes 33 units, 66.0 kvar-equivalent of per-unit cost beside 33.0 kvar of nameplate');
     expect(w.message).toContain('only 0.8 % wide (A-B: 180.1 – 181.5 µF)');
+    expect(w.message).toContain('allow single-line steps (correction.bank.trimSteps: auto)');
     expect(w.message).toContain('--allow-leading');
     expect(w.message).toContain('--definition effective or vector');
     // Either suggestion does build it from a few larger units.
     for (const relax of [['--allow-leading'], ['--definition', 'vector']]) {
-      const relaxed = JSON.parse(runTrivar(['correct', '-', '--arrangement', 'delta-bank', ...relax, '--json'], CIDERY_LOADS).stdout) as { selection: { units: number }; warnings: { code: string }[] };
+      const relaxed = JSON.parse(runTrivar(['correct', '-', '--arrangement', 'delta-bank', ...relax, '--json'], CIDERY_EQUAL_STEPS).stdout) as { selection: { units: number }; warnings: { code: string }[] };
       expect(relaxed.selection.units).toBeLessThanOrEqual(6);
       expect(relaxed.warnings.map((x) => x.code)).not.toContain('many-small-units');
     }
@@ -126,7 +149,7 @@ describe('trivar correct: one target, one story', () => {
   });
 
   it('where the sizing leaves a branch at 0 kvar and the equal bank fills it, the units table says why (detuned too)', () => {
-    for (const text of [CIDERY_LOADS, harmonicCidery('7')]) {
+    for (const text of [CIDERY_EQUAL_STEPS, harmonicCidery('7') + EQUAL_STEPS_ONLY]) {
       const out = runTrivar(['correct', '-', '--arrangement', 'delta-bank'], text).stdout;
       expect(out).toMatch(/^\s+B-C\s+-\s+0\.00\s/m);
       expect(out).toMatch(/^\s+B-C\s+\d+\.\d – \d+\.\d\s/m);

@@ -36,6 +36,7 @@ const needArb: fc.Arbitrary<Need> = fc
 
 const rulesArb: fc.Arbitrary<SetRules> = fc.record({
   unitCostKvar: fc.constantFrom(0, 0.5, 2, 3),
+  singleLineStepsKvar: fc.constantFrom(0, 5, 25),
   minSwitchedSteps: fc.integer({ min: 1, max: 4 }),
   minStepKvar: fc.constantFrom(0, 1, 2.5, 5),
   outputs: fc.integer({ min: 1, max: 12 }),

@@ -49,11 +49,14 @@ describe('a balanced board: three branches do what the programme spreads over si
   });
 
   it('the study builds the three branches: cheaper, fewer units, and verified', () => {
-    const report = correctBoard(board, { arrangement: 'balancing-compensator', target: { pf: 0.95 } });
+    // Equal steps only (no single-line steps): on six branches 4 three-phase 5 kvar units (28.0) and 21
+    // single-phase 1 kvar ones (63.0), cost 91.0, against 12 single-phase 3.33 kvar ones on three (64.0).
+    const report = correctBoard(board, { arrangement: 'balancing-compensator', target: { pf: 0.95 }, bank: { trimSteps: 'none' } });
     const f = report.fewerBranchesBuild!;
     expect(f.used).toBe(true);
     expect(f.verdict).toBe('meets');
-    expect(f.cost!).toBeLessThan(f.costOnEveryBranch!);
+    expect(f.cost!).toBeCloseTo(63.96, 2);
+    expect(f.costOnEveryBranch!).toBeCloseTo(91, 2);
     expect(report.selection!.cost.value).toBe(f.cost);
     // The units bought sit on three branches only.
     const branches = new Set(report.selection!.equipment.flatMap((g) => g.branches.filter((b) => b.susceptanceS > 0).map((b) => b.branch)));
@@ -66,6 +69,21 @@ describe('a balanced board: three branches do what the programme spreads over si
     const text = renderCorrectionReport(report);
     expect(text).toContain('fewer branches built');
     expect(text).toContain('built: the capacitor-only solution on fewer branches');
+  });
+
+  it('with single-line steps allowed, six branches cost less still and are built', () => {
+    // One single-phase 6.67 kvar unit on each line-to-neutral branch (3 × (6.67 + 2) = 26.0, against 63.0
+    // for equal steps of 1 kvar units there, so ahead even ranked 25 dearer for its single-line steps)
+    // beside the same 28.0 three-phase part: 54.0 and 7 units, against 64.0 and 12 on three branches.
+    // Both meet the target re-solved.
+    const report = correctBoard(board, { arrangement: 'balancing-compensator', target: { pf: 0.95 } });
+    const f = report.fewerBranchesBuild!;
+    expect([f.verdict, f.verdictOnEveryBranch]).toEqual(['meets', 'meets']);
+    expect(f.used).toBe(false);
+    expect(f.costOnEveryBranch!).toBeCloseTo(54.01, 2);
+    expect(report.selection!.units).toBe(7);
+    expect(report.selection!.cost.value).toBe(f.costOnEveryBranch);
+    expect(report.status).toBe('meets-target');
   });
 });
 

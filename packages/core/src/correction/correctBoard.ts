@@ -15,7 +15,7 @@ import { judgeBalance } from './balanceTarget.js';
 import { sizeStarBank } from './sizeStarBank.js';
 import { sizeDeltaBank } from './sizeDeltaBank.js';
 import { sizeBalancingCompensator } from './sizeBalancingCompensator.js';
-import { defaultPractice, selectBankUnits } from './selectBankUnits.js';
+import { defaultPractice, selectBankUnitsPreferring, type BuildPreference } from './selectBankUnits.js';
 import { verifyCorrection, type VerifyCorrectionOptions } from './verifyCorrection.js';
 import { scaleBoardLoads } from './scaleBoardLoads.js';
 import type { BankSelection, BankSizing, BuildVerdict, CompensatorSizing, CorrectionReport, CorrectionStatus, CorrectionVerification, CorrectionWarning, FewerBranchesBuild, LineComparison, RoundingBesideReactors, SizedEquipment } from './correctionResult.js';
@@ -59,6 +59,17 @@ function sizeArrangement(board: Board, spec: CorrectionSpec & { arrangement: Arr
 
 /** Verdicts of a build from units, best first. */
 const BUILD_VERDICT_RANK: Readonly<Record<BuildVerdict, number>> = { meets: 0, 'meets-at-nominal': 1, misses: 2, 'no-units': 3 };
+
+/**
+ * The re-solve's warnings of a limit a build passes beside the target, what makes one of two candidate builds
+ * worse: a line leading at light load, an overload the bank causes. Not the voltage-rise flag: a cheaper
+ * build a tenth of a per cent past it is no reason to buy three times the units (the warning stays); the
+ * capacitor voltage is held by the units' rating (selectBankUnits: ≥ the highest solved voltage / 1.10).
+ */
+const LIMIT_WARNINGS: ReadonlySet<string> = new Set(['light-load-leading', 'overload-caused']);
+
+/** The steps of a selection as bought: two selections with the same are one build. */
+const stepsBought = (s: BankSelection) => JSON.stringify(s.steps.map((st) => [st.part, st.branches, st.unit.name, st.units, st.output === null]));
 
 /** Star-point shift above this fraction of the line-to-neutral voltage is worth a warning (common practice, no source). */
 const STAR_SHIFT_WARNING = 0.1;
@@ -195,8 +206,8 @@ export function correctBoard(board: Board, spec: unknown): CorrectionReport {
     if (!light) lightSizings.set(key, (light = buildable(sizeArrangement(scaled, parsed, { limitsOnly: true, ...(heldBranches ? { heldBranches } : {}) }))));
     return light;
   };
-  const selectUnits = (sized: SizedEquipment, how: { heldBranches?: readonly string[]; besideReactors?: 'up' } = {}): BankSelection =>
-    selectBankUnits(
+  const selectUnits = (sized: SizedEquipment, how: { heldBranches?: readonly string[]; besideReactors?: 'up' } = {}, preference: BuildPreference = 'least-cost'): BankSelection =>
+    selectBankUnitsPreferring(
       sized,
       definedOnly({
         practice: parsed.practice ?? defaultPractice(board.frequencyHz),
@@ -214,6 +225,7 @@ export function correctBoard(board: Board, spec: unknown): CorrectionReport {
         region,
         besideReactors: how.besideReactors,
       }),
+      preference,
     );
   const verifyOptions = (equipment: VerifyCorrectionOptions['equipment']): VerifyCorrectionOptions =>
     definedOnly({
@@ -234,6 +246,8 @@ export function correctBoard(board: Board, spec: unknown): CorrectionReport {
     readonly verdict: BuildVerdict;
     /** The unit choice's cost plus the reactors' (as compareCorrections counts them); null when no units fit. */
     readonly cost: number | null;
+    /** A cheaper build the re-solve proved worse and this one replaced, said in the warnings. */
+    readonly passedOver?: CorrectionWarning;
   }
   const buildOf = (sized: SizedEquipment, selection: BankSelection | null): Build => {
     // Built with reactors, a compensator gets its reactors sized again beside the capacitors as built
@@ -260,6 +274,34 @@ export function correctBoard(board: Board, spec: unknown): CorrectionReport {
     const cost = selection?.unbuildable ? null : (selection?.cost.value ?? 0) + CORRECTION_DEFAULTS.reactorCostFactor * reactorKvarOf(recommended);
     return { sized, selection, refit, recommended, verification, verdict, cost };
   };
+  const limitsBroken = (b: Build) => b.verification.warnings.filter((w) => LIMIT_WARNINGS.has(w.code)).length;
+  /**
+   * The build from units, proved by re-solving. Two candidates: the unit choice's least-cost build and,
+   * where it differs, its equal-steps one (BuildPreference). The windows they are chosen in are
+   * first-order, so the re-solve ranks them: verdict, then the limits it shows passed, then cost (a tie
+   * to the least-cost build). The second is chosen and re-solved only where the first falls short.
+   */
+  const provenBuildOf = (sized: SizedEquipment, how: { heldBranches?: readonly string[]; besideReactors?: 'up' } = {}): Build => {
+    const cheapest = buildOf(sized, selectUnits(sized, how));
+    // Proved: it meets the target across the tolerance and passes no limit; the second is for a build that does not.
+    if (cheapest.verdict === 'meets' && limitsBroken(cheapest) === 0) return cheapest;
+    const alternative = selectUnits(sized, how, 'equal-steps');
+    const cheapestSelection = cheapest.selection!;
+    if (stepsBought(alternative) === stepsBought(cheapestSelection)) return cheapest;
+    const equalSteps = buildOf(sized, alternative);
+    const rank = (b: Build) => [BUILD_VERDICT_RANK[b.verdict], limitsBroken(b), b.cost ?? Infinity];
+    const [a, c] = [rank(equalSteps), rank(cheapest)];
+    const wins = a[0]! !== c[0]! ? a[0]! < c[0]! : a[1]! !== c[1]! ? a[1]! < c[1]! : a[2]! < c[2]!;
+    if (!wins) return cheapest;
+    if (cheapest.cost === null || equalSteps.cost === null || cheapest.cost >= equalSteps.cost) return equalSteps;
+    // Kept on a better verdict, or on a limit the cheaper one passes (the one the kept build does not, else its first).
+    const limits = cheapest.verification.warnings.filter((w) => LIMIT_WARNINGS.has(w.code));
+    const passed = limits.find((w) => !equalSteps.verification.warnings.some((x) => x.code === w.code)) ?? limits[0];
+    const why = cheapest.verdict === equalSteps.verdict && passed ? { limit: passed.message } : { verdict: cheapest.verdict === 'meets' ? ('misses' as const) : cheapest.verdict };
+    const equalOnly = alternative.steps.every((st) => st.part !== 'trim');
+    const message = warningText.cheaperBuildPassedOver(cheapestSelection.units, cheapestSelection.cost.value, why, alternative.units, alternative.cost.value, equalOnly);
+    return { ...equalSteps, passedOver: { code: 'cheaper-build-passed-over', message, path: null, value: cheapestSelection.cost.value, threshold: null } };
+  };
   /** True when `a` is the build to keep over `b`: a better verdict, else no higher cost. */
   const keeps = (a: Build, b: Build): boolean =>
     BUILD_VERDICT_RANK[a.verdict] < BUILD_VERDICT_RANK[b.verdict] || (a.verdict === b.verdict && a.cost !== null && b.cost !== null && a.cost <= b.cost);
@@ -274,11 +316,11 @@ export function correctBoard(board: Board, spec: unknown): CorrectionReport {
    */
   function chooseBuild(): { build: Build; fewerBranchesBuild: FewerBranchesBuild | null; roundingBesideReactors: RoundingBesideReactors | null } {
     if (!needsUnits) return { build: buildOf(asSized, null), fewerBranchesBuild: null, roundingBesideReactors: null };
-    const base = buildOf(asSized, selectUnits(asSized));
+    const base = provenBuildOf(asSized);
     if (sizing.arrangement !== 'balancing-compensator') return { build: base, fewerBranchesBuild: null, roundingBesideReactors: null };
     const fewer = sizing.recommended === 'capacitor-only' ? sizing.fewerBranches : null;
     if (fewer) {
-      const onFewer = buildOf(fewer.solution, selectUnits(fewer.solution, { heldBranches: fewer.spared.map((b) => b.branch) }));
+      const onFewer = provenBuildOf(fewer.solution, { heldBranches: fewer.spared.map((b) => b.branch) });
       const used = keeps(onFewer, base);
       return {
         build: used ? onFewer : base,
@@ -288,7 +330,7 @@ export function correctBoard(board: Board, spec: unknown): CorrectionReport {
     }
     // Rounding up is for a build that rounding down leaves short: one that meets across the tolerance is kept.
     if (sizing.recommended === 'ideal' && asSized.branches.some((b) => b.element === 'reactor') && base.verdict !== 'meets') {
-      const up = buildOf(asSized, selectUnits(asSized, { besideReactors: 'up' }));
+      const up = provenBuildOf(asSized, { besideReactors: 'up' });
       const used = keeps(up, base) && !(up.verdict === base.verdict && up.cost === base.cost);
       return {
         build: used ? up : base,
@@ -369,6 +411,7 @@ export function correctBoard(board: Board, spec: unknown): CorrectionReport {
     ...starPointWarnings(sizing, board),
     ...(sizing.arrangement === 'balancing-compensator' ? sizing.warnings : []),
     ...(built?.warnings ?? []).filter((w) => !settledByVerdict.has(w.code)),
+    ...(chosen.passedOver ? [chosen.passedOver] : []),
     ...(resizing?.used ? [{ code: 'reactors-resized', message: warningText.reactorsResized(resizedWords(resizing.reactors)), path: null, value: null, threshold: null }] : []),
     ...verification.warnings,
     ...(verification.metering && built?.controller

@@ -56,6 +56,14 @@ export const CORRECTION_DEFAULTS = {
    */
   unitCostKvar: 2,
   /**
+   * On a three-phase bank, equal steps are kept over a build with single-line steps (trims) unless that
+   * build costs this much less, in the same kvar-equivalents: single-line steps need a controller that
+   * measures every line (two CTs more, a dearer controller) and follow the load line by line in coarse
+   * steps where equal ones follow it in thirds or finer (a design choice, common practice, no source:
+   * about the price difference of the two controllers with their CTs).
+   */
+  singleLineStepsKvar: 25,
+  /**
    * Balancing compensator: |I2|/|I1| left at most 10 %. Current unbalance runs
    * at about 6–10 × the voltage unbalance it causes (methods notes §3, secondary
    * source), so this keeps well inside a 2 % voltage-unbalance budget

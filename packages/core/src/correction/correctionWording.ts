@@ -185,9 +185,12 @@ export const warningText = {
     perLineTarget: boolean;
     leadingAllowed: boolean;
     upperBound: number | null;
+    /** Single-line (trim) steps turned off: allowing them lets a build of a few units per line in. */
+    trimsOff?: boolean;
   }) => {
     const bound = w.upperBound !== null ? `stay at or below ${w.upperBound.toFixed(3)} lagging` : w.leadingAllowed ? 'stay within the leading limit' : 'not lead';
     const relax = [
+      ...(w.trimsOff ? ['allow single-line steps (correction.bank.trimSteps: auto), which need a controller that measures every line'] : []),
       ...(w.upperBound !== null ? ['raise or drop the upper bound (--upper-pf, target.maxLaggingPf)'] : []),
       ...(!w.leadingAllowed && w.upperBound === null ? ['let lines lead (--allow-leading, target.leading: allowed)'] : []),
       ...(w.perLineTarget ? ['judge one board-wide figure instead of every line (--definition effective or vector)'] : []),
@@ -196,6 +199,14 @@ export const warningText = {
     ];
     return `the bank takes ${w.units} units, ${f1(w.unitCostKvar * w.units)} kvar-equivalent of per-unit cost beside ${f1(w.nameplateKvar)} kvar of nameplate, because the capacitance that holds the target across the tolerance is only ${w.widthPercent.toFixed(1)} % wide (${w.branch}: ${w.lowUF.toFixed(1)} – ${w.highUF.toFixed(1)} µF) and only small units land in it: ${w.perLineTarget ? 'every line' : 'the board figure'} must reach its minimum at −${trimmed(w.minusPercent)} % capacitance and ${bound} at +${trimmed(w.plusPercent)} %, and ${w.perLineTarget ? 'a line already near that bound leaves' : 'a board already near it leaves'} little room. To build it from fewer, larger units: ${relax.join('; ')}`;
   },
+  /**
+   * @param why the cheaper build's re-solved verdict where it is worse, or the warning of the limit it passes
+   *   and the build kept does not (a verification warning's message)
+   */
+  cheaperBuildPassedOver: (units: number, cost: number, why: { verdict: 'meets-at-nominal' | 'misses' | 'no-units' } | { limit: string }, builtUnits: number, builtCost: number, equalStepsOnly: boolean) =>
+    `a cheaper build of ${units} unit${units === 1 ? '' : 's'} (cost ${f1(cost)}) fits the capacitance ranges, but re-solved with it ${
+      'limit' in why ? why.limit : why.verdict === 'meets-at-nominal' ? 'the board meets the target only at nominal capacitance' : 'the board misses the target'
+    }: the bank is built from ${equalStepsOnly ? 'equal steps' : 'the next-best build'} instead (${builtUnits} unit${builtUnits === 1 ? '' : 's'}, cost ${f1(builtCost)})`,
   ckBelowResolution: (settingA: number, resolutionA: number, chosen: boolean) =>
     `the C/k setting (${settingA.toFixed(3)} A) is below about ${resolutionA} A, finer than controllers usually resolve (common practice, no source): ${chosen ? 'the smallest step is small for this CT' : 'a smaller CT primary'} or a larger smallest step brings it up`,
   outputsShort: (branches: readonly PhaseLabel[], outputs: number) =>
@@ -380,8 +391,14 @@ export const selectionWording = {
         : `; give a catalogue with units rated ${f1(neededV)}–${f1(highestV)} V`;
     return `no unit in the ${catalogue} fits ${branches.join(', ')}: a unit there must be rated at least ${f1(neededV)} V and still deliver ${floorPercent.toFixed(0)} % of its nameplate at ${floating ? `the ${f1(nominalV)} V across it as solved (the ${star} point floats)` : `the nominal ${f1(nominalV)} V across it`}${hzFactor === 1 ? '' : `, its output scaled by ${f3(hzFactor)} for running at the board's frequency instead of its rated one`}, i.e. be rated at most ${f1(highestV)} V; the catalogue has ${ratings.map((v) => `${v}`).join(', ')} V${remedy}`;
   },
-  costStatement: (unitCostKvar: number) =>
-    `least cost = nameplate kvar + ${unitCostKvar} kvar-equivalent per unit bought, among the builds that best fit the tolerance window, the controller outputs and the minimum step`,
+  /**
+   * @param preference `equal-steps`: equal steps wherever one fits (the study's second candidate)
+   * @param singleLineStepsKvar what single-line steps must save to be chosen over equal ones; null where none were weighed
+   */
+  costStatement: (unitCostKvar: number, preference: 'least-cost' | 'equal-steps' = 'least-cost', singleLineStepsKvar: number | null = null) =>
+    `least cost = nameplate kvar + ${unitCostKvar} kvar-equivalent per unit bought${
+      preference === 'least-cost' && singleLineStepsKvar !== null ? ` (single-line steps ranked ${trimmed(singleLineStepsKvar)} dearer: every line measured, coarser steps)` : ''
+    }, among the builds ${preference === 'equal-steps' ? 'of equal steps (single-line steps only where none fits) ' : ''}that best fit the tolerance window, the controller outputs and the minimum step`,
   /** The cost of a detuned bank: its capacitors' real nameplate and its detuning reactors, counted as a compensator's reactors are. */
   detunedCostStatement: (unitCostKvar: number, percent: number, reactorFactor: number) =>
     `cost = nameplate kvar of the capacitors + ${unitCostKvar} kvar-equivalent per unit bought + the ${percent} % detuning reactors at ${reactorFactor} × their kvar (${percent} % of the capacitors' nameplate); the units were chosen as their fundamental equivalents behind the reactors`,

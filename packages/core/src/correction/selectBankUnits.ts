@@ -19,7 +19,9 @@
  * - the fixed part stays within what the light load can take at +tol;
  * - at most the controller's outputs, every switched step at least the minimum step.
  * Among builds that fit equally well, the least cost = nameplate kvar + a fixed
- * kvar-equivalent per unit (weights in `CORRECTION_DEFAULTS`).
+ * kvar-equivalent per unit (weights in `CORRECTION_DEFAULTS`), then the fewest units, and only
+ * then the build that sits most centrally in its windows (see bankSearch.ts). The study
+ * (correctBoard.ts) re-solves the build chosen, and the equal-steps one where that falls short.
  */
 import * as z from 'zod';
 import { CONTROLLER_OUTPUTS, PRACTICES, capacitorUnitSchema, type CapacitanceToleranceSpec, type CapacitorUnitSpec, type ControllerSpec, type Practice, type TargetSpec } from './correctionSpec.js';
@@ -32,7 +34,7 @@ import { parseOptions } from '../_internal/zodIssues.js';
 import { labellerOf, PHASE_NAMINGS, type PhaseNaming } from '../board/conventions/phaseNames.js';
 import { REGIONS, type Region } from '../board/conventions/region.js';
 import { starWordOf } from '../board/conventions/regionWords.js';
-import { firstFit, searchSet, shortOfTarget, type Need, type SetBuild, type UnitChoice } from './_internal/bankSearch.js';
+import { firstFit, leastCostOverWindows, searchSet, shortOfTarget, type Need, type SetBuild, type UnitChoice } from './_internal/bankSearch.js';
 import { defaultPractice } from './capacitorDischarge.js';
 import { controllerSettings, controllerWarnings, ctBasisOf, resolveCurrentTransformer, responseThresholdA } from './controllerSettings.js';
 import { checkObjectArgument } from '../_internal/argumentChecks.js';
@@ -132,6 +134,19 @@ const elementF = (u: CatalogueUnit) => ((u.kind === 'three-phase' ? u.ratedKvar 
  * selection.controller?.responseThresholdA    //=> C/k of the smallest step, A
  */
 export function selectBankUnits(sized: SizedEquipment, options?: SelectBankUnitsOptions): BankSelection {
+  return selectBankUnitsPreferring(sized, options, 'least-cost');
+}
+
+/**
+ * Which builds the unit choice prefers before cost: `least-cost` ranks every build that fits as
+ * well by cost (equal steps, trims or both); `equal-steps` keeps equal steps — an ordinary
+ * controller reading one CT — wherever one fits every branch's window, trims only where none does,
+ * and the narrowest windows that a build fits whole. The study re-solves both and keeps the better.
+ */
+export type BuildPreference = 'least-cost' | 'equal-steps';
+
+/** `selectBankUnits` with the preference given (the study's candidates; not exported from the package). */
+export function selectBankUnitsPreferring(sized: SizedEquipment, options: SelectBankUnitsOptions | undefined, preference: BuildPreference): BankSelection {
   checkObjectArgument(sized, 'sized', 'a sizing from sizeStarBank, sizeDeltaBank or sizeBalancingCompensator', ['frequencyHz', 'branches', 'equipment']);
   const opts = parseOptions(selectOptionsSchema, options, 'selectBankUnits options');
   const practice = opts.practice ?? defaultPractice(sized.frequencyHz);
@@ -237,6 +252,8 @@ export function selectBankUnits(sized: SizedEquipment, options?: SelectBankUnits
   const builds: { set: (typeof sets)[number]; build: SetBuild }[] = [];
   const unbuildable: number[] = [];
   let equalBankWindows = false;
+  // Whether a build with single-line steps was weighed against equal steps (the cost statement then says how).
+  let equalStepsWeighed = false;
   for (const set of sets) {
     const infos = set.indices.map((i) => branchInfo[i]!);
     if (!infos.some((x) => x.capacitor)) continue;
@@ -265,17 +282,22 @@ export function selectBankUnits(sized: SizedEquipment, options?: SelectBankUnits
     const uncovered = balancedChoices.length ? [] : set.indices.filter((i, k) => branchInfo[i]!.capacitor && !trimChoices[k]!.length);
     unbuildable.push(...uncovered);
     const equalNeeds = three && !withReactor ? equalNeedsOf(set.indices) : undefined;
+    const singleLineStepsKvar = three && trimsAllowed && balancedChoices.length > 0 ? CORRECTION_DEFAULTS.singleLineStepsKvar : 0;
+    if (singleLineStepsKvar > 0 && trimChoices.some((c) => c.length)) equalStepsWeighed = true;
     const search = (needs: readonly Need[]) =>
       searchSet(
         needs,
         balancedChoices,
         trimChoices,
-        { unitCostKvar, minSwitchedSteps: CORRECTION_DEFAULTS.minSwitchedSteps, minStepKvar, outputs: outputsPerSet, maxUnitsPerBranch: maxUnits },
+        { unitCostKvar, singleLineStepsKvar, minSwitchedSteps: CORRECTION_DEFAULTS.minSwitchedSteps, minStepKvar, outputs: outputsPerSet, maxUnitsPerBranch: maxUnits },
         equalNeeds,
+        { equalStepsFirst: preference === 'equal-steps' },
       );
     // Windows that hold together, where the sizing found them (each branch's own are then empty): the
-    // narrowest set (least kvar) that a build fits whole, else the best build over every set.
-    const build = together && three ? firstFit(together.sets.map((w) => () => search(set.indices.map((i) => heldTogether(branchInfo[i]!, w, i))))) : search(infos.map((x) => x.need));
+    // best build over every set, ties to the narrowest; for equal steps first, the narrowest set a build
+    // fits whole, else the best over every set.
+    const overWindows = preference === 'equal-steps' ? firstFit : leastCostOverWindows;
+    const build = together && three ? overWindows(together.sets.map((w) => () => search(set.indices.map((i) => heldTogether(branchInfo[i]!, w, i))))) : search(infos.map((x) => x.need));
     set.indices.forEach((i, k) => {
       designF[i] = build.designF[k]!;
       fixedF[i] = build.fixedF[k]!;
@@ -456,6 +478,7 @@ export function selectBankUnits(sized: SizedEquipment, options?: SelectBankUnits
         perLineTarget,
         leadingAllowed: target.leading === 'allowed',
         upperBound: target.maxLaggingPf ?? null,
+        trimsOff: (opts.trimSteps ?? CORRECTION_DEFAULTS.trimSteps) === 'none',
       }),
       'capacitanceTolerance',
       narrow.widthPercent,
@@ -475,7 +498,7 @@ export function selectBankUnits(sized: SizedEquipment, options?: SelectBankUnits
     voltageMarginPercent: margin * 100,
     continuousLimitPercent: limitV * 100,
     deliveryFloorPercent: floor * 100,
-    cost: { statement: selectionWording.costStatement(unitCostKvar), unitCostKvar, value: nameplateKvar + unitCostKvar * units },
+    cost: { statement: selectionWording.costStatement(unitCostKvar, preference, equalStepsWeighed ? CORRECTION_DEFAULTS.singleLineStepsKvar : null), unitCostKvar, value: nameplateKvar + unitCostKvar * units },
     steps,
     controller,
     selections,

@@ -5,9 +5,15 @@
  * capacitance to every branch, plus optional single-phase trim units on single
  * branches; a lone branch (split-phase, single-phase) gets single-phase units.
  *
- * Each build is judged per branch against the tolerance window (`tierOf`), then
- * on the hardware rules (controller outputs, minimum step), then on the stated
- * cost: nameplate kvar + a fixed kvar-equivalent per unit.
+ * Each build is judged on the hardware rules (unit cap, controller outputs,
+ * minimum step) and per branch against the tolerance window (`tierOf`), then on
+ * the stated cost (nameplate kvar + a fixed kvar-equivalent per unit; a build
+ * with single-line steps ranked as if it cost `singleLineStepsKvar` more, so
+ * equal steps are kept unless those save more) and the units bought, and only
+ * then on how centrally it sits in its windows: a build
+ * that holds the target from four units is not passed over for one of seventy
+ * that sits nearer the middle of a narrow window. The study re-solves what is
+ * chosen (correctBoard.ts), windows being first-order.
  */
 import type { CatalogueUnit } from '../unitCatalogues.js';
 
@@ -38,6 +44,8 @@ export interface UnitChoice {
 
 export interface SetRules {
   readonly unitCostKvar: number;
+  /** Added to the cost of a build with trims when ranking (not to its cost): what equal steps are kept for. 0 on a lone branch. */
+  readonly singleLineStepsKvar: number;
   /** Fewest equal switched steps wanted, where outputs and the minimum step allow. */
   readonly minSwitchedSteps: number;
   readonly minStepKvar: number;
@@ -64,6 +72,8 @@ export interface SetBuild {
   readonly units: number;
   readonly nameplateKvar: number;
   readonly cost: number;
+  /** The cost the ranking compares: `cost`, plus `SetRules.singleLineStepsKvar` where the build has trims. */
+  readonly rankedCost: number;
   /** Hardware rules broken (0 when none): outputs short, steps below the minimum, units per branch over the cap. */
   readonly violations: { readonly outputs: boolean; readonly minStep: boolean; readonly unitCap: boolean };
   /** Equal steps short of the number wanted (0 when the bank follows the load finely enough). */
@@ -181,6 +191,7 @@ function evaluate(
     units,
     nameplateKvar,
     cost: nameplateKvar + rules.unitCostKvar * units,
+    rankedCost: nameplateKvar + rules.unitCostKvar * units + (trims.length ? rules.singleLineStepsKvar : 0),
     violations: {
       outputs: split.outputsShort || trimOutputs > rules.outputs,
       minStep: split.belowMin || trimBelowMin,
@@ -188,6 +199,32 @@ function evaluate(
     },
   };
 }
+
+/**
+ * How far the design state sits from the middle of its windows: per branch with a known width, the
+ * distance from the centre over the half-width, the largest (0 at the centre, 1 at an end). A branch
+ * without an upper end, or held empty, adds nothing. The last word between builds of equal cost.
+ */
+function offCentre(designF: readonly number[], needs: readonly Need[]): number {
+  let worst = 0;
+  for (let i = 0; i < needs.length; i++) {
+    const need = needs[i]!;
+    if (need.maxF === null || !(need.maxF > need.minF)) continue;
+    const half = (need.maxF - need.minF) / 2;
+    worst = Math.max(worst, Math.abs(designF[i]! - (need.minF + half)) / half);
+  }
+  return worst;
+}
+
+/** Where `rankKey` holds the equal steps short of the number wanted. */
+const STEPS_SHORT = 6;
+
+/**
+ * A key as builds with single-line steps are compared, with each other and with equal builds: steps
+ * short weigh only between equal builds, since single-line steps follow the load line by line, never
+ * in equal thirds (their coarser following is in `singleLineStepsKvar` instead).
+ */
+const acrossKinds = (key: readonly number[]) => key.map((x, k) => (k === STEPS_SHORT ? 0 : x));
 
 /** Ranking key, compared left to right, smaller first. */
 function rankKey(build: SetBuild, needs: readonly Need[]): number[] {
@@ -199,22 +236,49 @@ function rankKey(build: SetBuild, needs: readonly Need[]): number[] {
   // (a bank that cannot reach the target anyway is not worth a dozen small cans for the last per cent).
   // Never past a bound (leading) comes before the minimum step: a step below it is a nuisance, a leading line is not.
   const past = build.tiers.some((t) => t === 5);
-  return [Number(v.unitCap), Number(v.outputs), Number(past), Number(v.minStep), worst, Math.round(missSum * 20), build.stepsShort, build.cost, -steps];
+  return [Number(v.unitCap), Number(v.outputs), Number(past), Number(v.minStep), worst, Math.round(missSum * 20), build.stepsShort, build.rankedCost, build.units, -steps, offCentre(build.designF, needs)];
 }
 
 /** True when a build fits every branch's window and breaks no hardware rule. */
 const fitsWhole = (build: SetBuild) => Math.max(...build.tiers) === 0 && !Object.values(build.violations).some(Boolean);
 
 /**
+ * Searches against every set of windows and returns the best build of them all by the search's
+ * ranking, each judged against its own windows: one that fits a wide set whole at a lower cost
+ * beats one that fits a narrow set, and of equals the first (sets come narrowest first, where a
+ * build sits most centrally).
+ */
+export function leastCostOverWindows(searches: readonly (() => SetBuild)[]): SetBuild {
+  let best: SetBuild | null = null;
+  for (const search of searches) {
+    const build = search();
+    // The same build found again in a wider set stays judged on the narrower one (where it sits off-centre only because the set is wider).
+    if (best === null || (!sameUnits(build, best) && beats(build, best))) best = build;
+  }
+  return best!;
+}
+
+/** Whether two builds buy the same units in the same places. */
+const sameUnits = (a: SetBuild, b: SetBuild) =>
+  a.units === b.units && a.designF.every((f, i) => f === b.designF[i]) && a.fixedF.every((f, i) => f === b.fixedF[i]) && (a.balanced?.choice.unit ?? null) === (b.balanced?.choice.unit ?? null);
+
+/** Whether build `a` ranks before `b`, each on its own windows (steps short only between two equal builds). */
+function beats(a: SetBuild, b: SetBuild): boolean {
+  const [ka, kb] = [rankKey(a, a.needs), rankKey(b, b.needs)];
+  return a.trims.length === 0 && b.trims.length === 0 ? better(ka, kb) : better(acrossKinds(ka), acrossKinds(kb));
+}
+
+/**
  * Searches against one set of windows after another and returns the first build that fits whole,
- * else the best of them all by the search's ranking (each judged against its own windows; the first of equals).
+ * else the best of them all by the search's ranking (each judged against its own windows; the first of equals):
+ * the equal-steps preference (see `searchSet`'s `equalStepsFirst`), the study's second candidate.
  */
 export function firstFit(searches: readonly (() => SetBuild)[]): SetBuild {
   let best: SetBuild | null = null;
   for (const search of searches) {
     const build = search();
     if (fitsWhole(build)) return build;
-    if (best === null || better(rankKey(build, build.needs), rankKey(best, best.needs))) best = build;
+    if (best === null || beats(build, best)) best = build;
   }
   return best!;
 }
@@ -241,6 +305,7 @@ function betterOfFour(a0: number, a1: number, a2: number, a3: number, b0: number
  */
 const boundable = (needs: readonly Need[], rules: SetRules, choices: readonly UnitChoice[]) =>
   rules.unitCostKvar >= 0 &&
+  rules.singleLineStepsKvar >= 0 &&
   choices.every((c) => c.unit.ratedKvar >= 0 && c.elementF > 0) &&
   needs.every((n) => 0 <= n.nominalF && n.nominalF <= n.minF && (n.maxF === null ? n.limitF === null : n.limitF !== null && 0 <= n.maxF && n.maxF <= n.limitF));
 
@@ -267,7 +332,7 @@ function equalKeyBound(needs: readonly Need[], rules: SetRules, choice: UnitChoi
   }
   const units = count * choice.unitsPerCount;
   const cost = count * choice.unitsPerCount * choice.unit.ratedKvar + rules.unitCostKvar * units;
-  return [Number(count > rules.maxUnitsPerBranch), 0, past, 0, worst, Math.round(missSum * 20), 0, cost, leastNegativeSteps(rules, needs.length)];
+  return [Number(count > rules.maxUnitsPerBranch), 0, past, 0, worst, Math.round(missSum * 20), 0, cost, units, leastNegativeSteps(rules, needs.length), 0];
 }
 
 /**
@@ -295,12 +360,13 @@ function choiceKeyBound(needs: readonly Need[], rules: SetRules, choice: UnitCho
   let worst = 0;
   for (let i = 0; i < needs.length; i++) worst = Math.max(worst, leastTierFrom(choice.elementF, needs[i]!));
   const kvar = 1 * choice.unitsPerCount * choice.unit.ratedKvar;
-  const cost = leastTrimKvar === null ? kvar + rules.unitCostKvar * choice.unitsPerCount : kvar + leastTrimKvar + rules.unitCostKvar * (choice.unitsPerCount + 1);
-  return [0, 0, Number(worst === 5), 0, worst, 0, 0, cost, leastNegativeSteps(rules, needs.length)];
+  const units = leastTrimKvar === null ? choice.unitsPerCount : choice.unitsPerCount + 1;
+  const cost = leastTrimKvar === null ? kvar + rules.unitCostKvar * units : kvar + leastTrimKvar + rules.unitCostKvar * units + rules.singleLineStepsKvar;
+  return [0, 0, Number(worst === 5), 0, worst, 0, 0, cost, units, leastNegativeSteps(rules, needs.length), 0];
 }
 
 /**
- * Whether trims on top of `balanced` may beat `bestKey`, before choosing them. A build with trims
+ * Whether trims on top of `balanced` may win (`mayWin` on a bound of their key), before choosing them. A build with trims
  * has them on some branches S (at least one); the key is bounded for each S and the build skipped
  * only if no S may win. A branch in S may reach any tier more capacitance can give it
  * (`leastTierFrom`), with no miss; one outside stays as the balanced part leaves it. `bestTrim`
@@ -309,7 +375,14 @@ function choiceKeyBound(needs: readonly Need[], rules: SetRules, choice: UnitCho
  * there, further past). Each trim costs at least its branch's cheapest unit.
  * @param leastTrimKvar per branch, the least nameplate of its trim units (Infinity: none)
  */
-function trimsMayWin(needs: readonly Need[], rules: SetRules, balanced: { choice: UnitChoice; count: number } | null, leastTrimKvar: readonly number[], bestKey: readonly number[]): boolean {
+function trimsMayWin(
+  needs: readonly Need[],
+  rules: SetRules,
+  balanced: { choice: UnitChoice; count: number } | null,
+  leastTrimKvar: readonly number[],
+  leastTrimKvarPerF: readonly number[],
+  mayWin: (bound: number[]) => boolean,
+): boolean {
   const n = needs.length;
   const baseF = balanced ? balanced.count * balanced.choice.elementF : 0;
   const units = balanced ? balanced.count * balanced.choice.unitsPerCount : 0;
@@ -325,22 +398,32 @@ function trimsMayWin(needs: readonly Need[], rules: SetRules, balanced: { choice
     let past = 0;
     let missSum = 0;
     let trimKvar = kvar;
+    // The trims' least nameplate where every trimmed branch reaches its window (tier 0): the capacitance
+    // it lacks at the least kvar per farad any of its trim units has.
+    let fittingTrimKvar = kvar;
+    let trimmedCanFit = true;
     let trims = 0;
     for (let i = 0; i < n; i++) {
+      const need = needs[i]!;
       if (s & (1 << i)) {
         trimKvar = trimKvar + leastTrimKvar[i]!;
         trims++;
-        worst = Math.max(worst, leastTierFrom(baseF, needs[i]!));
+        const least = leastTierFrom(baseF, need);
+        worst = Math.max(worst, least);
+        if (least !== 0) trimmedCanFit = false;
+        const lacking = need.minF - 1e-9 * Math.max(need.nominalF, need.minF, 1e-30) - baseF;
+        fittingTrimKvar = fittingTrimKvar + Math.max(leastTrimKvar[i]!, lacking * leastTrimKvarPerF[i]! * (1 - 1e-9));
         continue;
       }
       const tier = tiers[i]!;
       worst = Math.max(worst, tier);
       if (tier === 5) past = 1;
-      missSum = missSum + miss(baseF, needs[i]!, tier);
+      missSum = missSum + miss(baseF, need, tier);
     }
-    const cost = trimKvar + rules.unitCostKvar * (units + trims);
-    const bound = [0, Number(trims > rules.outputs), past, 0, worst, Math.round(missSum * 20), 0, cost, leastNegativeSteps(rules, n)];
-    if (better(bound, bestKey)) return true;
+    const fixedCost = rules.unitCostKvar * (units + trims) + rules.singleLineStepsKvar;
+    const key = (w: number, kvarBought: number) => [0, Number(trims > rules.outputs), past, 0, w, Math.round(missSum * 20), 0, kvarBought + fixedCost, units + trims, leastNegativeSteps(rules, n), 0];
+    // Where every trimmed branch may fit, a build either does (and buys what they lack) or leaves one at tier 1 or worse.
+    if (trimmedCanFit ? mayWin(key(worst, fittingTrimKvar)) || mayWin(key(Math.max(worst, 1), trimKvar)) : mayWin(key(worst, trimKvar))) return true;
   }
   return false;
 }
@@ -396,8 +479,10 @@ function bestTrim(branch: number, need: Need, baseF: number, choices: readonly U
 }
 
 /**
- * The best build for one set: equal steps where they fit every branch,
- * otherwise equal steps plus single-phase trims where those fit better.
+ * The best build for one set by the ranking (`rankKey`): equal steps, single-phase trims, or both,
+ * whichever fits as well for less. With `equalStepsFirst`, trims are searched only where no equal
+ * build fits every branch's window: an ordinary one-CT controller before a cheaper build that needs
+ * every line measured (the study's second candidate, kept where it re-solves better).
  * @param balancedChoices units for the balanced part (a lone branch: its units)
  * @param trimChoices per branch, single-phase units for a trim step (empty: no trims)
  */
@@ -407,16 +492,27 @@ export function searchSet(
   trimChoices: readonly (readonly UnitChoice[])[],
   rules: SetRules,
   equalNeeds: readonly Need[] = needs,
-  options: { readonly exhaustive?: boolean } = {},
+  options: { readonly exhaustive?: boolean; readonly equalStepsFirst?: boolean } = {},
 ): SetBuild {
+  // The best of each kind: equal steps only (the empty build too), and with single-line steps (trims).
   let best: SetBuild | null = null;
   let bestKey: number[] = [];
+  let bestTrimmed: SetBuild | null = null;
+  let bestTrimmedKey: number[] = [];
   // Skip builds whose key bound cannot beat the best so far (`exhaustive`: judge every build, for tests).
   const pruning = !options.exhaustive && boundable([...needs, ...equalNeeds], rules, [...balancedChoices, ...trimChoices.flat()]);
   const mayWin = (bound: number[]) => best === null || better(bound, bestKey);
+  // Every equal build is judged before any trimmed one: a trimmed build matters only if it may beat both
+  // the best trimmed build so far and, across kinds, the best equal one (equal builds win ties).
+  const trimmedMayWin = (bound: number[]) => (bestTrimmed === null || better(bound, bestTrimmedKey)) && (best === null || better(bound, acrossKinds(bestKey)));
   const consider = (build: SetBuild) => {
-    const k = rankKey(build, build.needs);
-    if (!best || better(k, bestKey)) {
+    const k = build.trims.length ? acrossKinds(rankKey(build, build.needs)) : rankKey(build, build.needs);
+    if (build.trims.length) {
+      if (!bestTrimmed || better(k, bestTrimmedKey)) {
+        bestTrimmed = build;
+        bestTrimmedKey = k;
+      }
+    } else if (!best || better(k, bestKey)) {
       best = build;
       bestKey = k;
     }
@@ -446,8 +542,9 @@ export function searchSet(
     return counts;
   };
   const leastTrimKvar = needs.map((_, i) => (trimChoices[i] ?? []).reduce((least, c) => Math.min(least, c.unit.ratedKvar), Infinity));
+  const leastTrimKvarPerF = needs.map((_, i) => (trimChoices[i] ?? []).reduce((least, c) => Math.min(least, c.unit.ratedKvar / c.elementF), Infinity));
   const withTrims = (balanced: { choice: UnitChoice; count: number } | null) => {
-    if (pruning && best !== null && !trimsMayWin(needs, rules, balanced, leastTrimKvar, bestKey)) return;
+    if (pruning && (best !== null || bestTrimmed !== null) && !trimsMayWin(needs, rules, balanced, leastTrimKvar, leastTrimKvarPerF, trimmedMayWin)) return;
     const baseF = balanced ? balanced.count * balanced.choice.elementF : 0;
     const baseUnits = balanced ? balanced.count : 0;
     const trims = needs.flatMap((need, i) => {
@@ -456,21 +553,22 @@ export function searchSet(
     });
     if (trims.length) consider(evaluate(needs, rules, balanced, trims));
   };
-  // Equal steps first; trims only where no equal build fits every branch's window.
+  // Equal steps, then trims (with `equalStepsFirst` only where no equal build fits every branch's window).
   consider(evaluate(needs, rules, null, []));
   for (const choice of balancedChoices) {
     if (pruning && !mayWin(choiceKeyBound(equalNeeds, rules, choice, null))) continue;
     for (const count of balancedCounts(choice))
       if (!pruning || mayWin(equalKeyBound(equalNeeds, rules, choice, count))) consider(evaluate(equalNeeds, rules, { choice, count }, []));
   }
-  const equalFits = best !== null && fitsWhole(best);
+  const equalFits = options.equalStepsFirst === true && best !== null && fitsWhole(best);
   if (!equalFits && trimChoices.some((c) => c.length)) {
     withTrims(null);
     const leastAnyTrimKvar = Math.min(...leastTrimKvar);
     for (const choice of balancedChoices) {
-      if (pruning && !mayWin(choiceKeyBound(needs, rules, choice, leastAnyTrimKvar))) continue;
+      if (pruning && !trimmedMayWin(choiceKeyBound(needs, rules, choice, leastAnyTrimKvar))) continue;
       for (const count of balancedCounts(choice)) withTrims({ choice, count });
     }
   }
-  return best!;
+  if (bestTrimmed === null) return best!;
+  return better(acrossKinds(bestTrimmedKey), acrossKinds(bestKey)) ? bestTrimmed : best!;
 }
