@@ -24,9 +24,11 @@ const kilnShed = (extra: Record<string, unknown> = {}): InstallationSpec =>
         feeder: { line: { r: 0.032, x: 0.005, ratingA: 110 }, neutral: { r: 0.032, x: 0.005, ratingA: 110 } },
         loads: [
           { name: 'Glaze booth fans', connection: 'ABC-star', kW: 46, pf: 0.68 },
-          { name: 'Pug mill', connection: 'A-N', kW: 9, pf: 0.9 },
-          { name: 'Wheel room', connection: 'B-N', kW: 7, pf: 0.92 },
-          { name: 'Drying racks', connection: 'C-N', kW: 5, pf: 1 },
+          // Resistive and equal, so the star bank comes out equal: its current meets X_path on the lines alone
+          // (an unequal bank puts a return current in the neutral, and its estimate weighs that too).
+          { name: 'Pug mill', connection: 'A-N', kW: 7, pf: 1 },
+          { name: 'Wheel room', connection: 'B-N', kW: 7, pf: 1 },
+          { name: 'Drying racks', connection: 'C-N', kW: 7, pf: 1 },
         ],
       },
     ],
