@@ -223,6 +223,60 @@ describe('rebalance: exhaustive enumeration on small boards', () => {
     );
   });
 
+  it('near-best under a capacity: the fewest moves within the share of the best score within it, or no effect where no wiring fits', () => {
+    let applied = 0;
+    let unused = 0;
+    fc.assert(
+      fc.property(boardAndStudy, fc.double({ min: 0.6, max: 1.1, noNaN: true }), fc.double({ min: 0, max: 15, noNaN: true }), ({ spec, study }, share, percent) => {
+        const home = boardFigures(spec, spec.loads.map((l) => l.connection));
+        const capped = { ...study, lineCapacityA: share * Math.max(...home.lines) + 1e-3 };
+        let report: RebalanceReport;
+        try {
+          report = rebalanceBoard(normaliseBoard(parseBoard(spec)), { ...capped, nearBestPercent: percent }, { method: 'exact', kicks: 20 });
+        } catch (error) {
+          expect(error).toBeInstanceOf(InputError);
+          return;
+        }
+        // Test-side: the best score within the capacity with at most m moves (pins stay, the move limit holds).
+        const pins = new Map(capped.pinned.map((name) => {
+          const i = spec.loads.findIndex((l) => l.name === name);
+          return [i, spec.loads[i]!.connection] as const;
+        }));
+        const bestWithin = Array<number>(spec.loads.length + 1).fill(Infinity);
+        enumerateAssignments(spec, pins, (connections) => {
+          const moves = movesBetween(spec, connections);
+          if (capped.moveLimit !== undefined && moves > capped.moveLimit) return;
+          const figs = capped.conditions.map((c) => {
+            const f = boardFigures(spec, connections, factorsOf(spec, c));
+            return { ...f, positive: positiveOf(f) };
+          });
+          if (figs.some((f) => f.lines.some((x) => x > capped.lineCapacityA))) return;
+          const score = scoreOf(capped, figs);
+          for (let m = moves; m < bestWithin.length; m++) bestWithin[m] = Math.min(bestWithin[m]!, score);
+        });
+        const best = Math.min(...bestWithin);
+        if (best === Infinity) {
+          // No wiring fits: the rule ranks only answers within the capacity, so it chose nothing, and says so.
+          unused++;
+          expect(report.nearBest).toEqual({ percent, bestScore: null, applied: false });
+          expect(report.notes.join(' ')).toContain('had no effect');
+          return;
+        }
+        applied++;
+        const target = best * (1 + percent / 100) + 1e-9 * Math.max(best, 1e-6);
+        expect(report.nearBest!.applied).toBe(true);
+        expectClose(report.nearBest!.bestScore!, best, { rel: 1e-9, abs: 1e-9 }, 'best score within the capacity');
+        expect(report.moves.length).toBe(bestWithin.findIndex((s) => s <= target));
+        expect(report.score.after).toBeLessThanOrEqual(target + 1e-9 * Math.max(best, 1));
+        report.conditions.forEach((c) => c.model.after.lineA.forEach((x) => expect(x).toBeLessThanOrEqual(capped.lineCapacityA * (1 + 1e-9))));
+      }),
+      { numRuns: 30 },
+    );
+    figures.note('near-best under a capacity: runs with a wiring within (of 30)', applied);
+    figures.note('near-best under a capacity: runs without any wiring within (of 30)', unused);
+    expect(applied).toBeGreaterThan(0);
+  });
+
   it('a capacity below every wiring but above the bound: the least overload with the fewest moves, as brute force finds it', () => {
     // Capacities between the polygon bound's (which refuses the study) and the best wiring's largest line: none fits.
     let infeasibleRuns = 0;

@@ -304,7 +304,7 @@ export function createProgram(io: CliIo, outcome: RunOutcome = { exitCode: EXIT.
       .option('--aim <figures>', 'what to make small: largest-line, neutral, current-unbalance, voltage-unbalance, each =weight (default largest-line,neutral)', parseAim)
       .addOption(new Option('--combine <how>', 'over several load conditions: the worst one or the weighted mean').choices(['worst', 'weighted']))
       .option('--move-limit <n>', 'move at most this many circuits', anyNumber)
-      .option('--near-best <percent>', 'fewest moves whose score is within this % of the best', anyNumber)
+      .option('--near-best <percent>', 'fewest moves whose score is within this % of the best of the answers within every rating and capacity (no effect where none is)', anyNumber)
       .option('--capacity <A>', 'largest current any line may carry, A', anyNumber)
       .option('--boards <names>', 'installations: only the circuits of these boards may move (comma-separated)', (v: string) => v.split(',').map((x) => x.trim()).filter(Boolean))
       .option('--measure-at <where>', 'installations: score each board\'s incomer ("each", default), the main incomer ("main") or one board\'s incomer and voltage (its name)')

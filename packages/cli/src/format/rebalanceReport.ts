@@ -66,6 +66,9 @@ function scoreDigits(xs: readonly number[]): number {
   return smallest >= 100 ? 1 : smallest >= 1 ? 2 : 3;
 }
 
+/** What a proof covers where the study lets only some boards' circuits move: " of the circuits on "Shed"". */
+const scopeWords = (onlyBoards: readonly string[] | null) => (onlyBoards === null ? '' : ` of the circuits on ${onlyBoards.map((b) => `"${b}"`).join(', ')}`);
+
 /** The overload measure in words: how the search ranks answers that leave something over its limit. */
 const OVERLOAD_ORDER = 'least overload first: the largest loading over 100 %, then the loadings over 100 % added, then the score';
 
@@ -75,7 +78,7 @@ function overloadVerdict(r: RebalanceReport, o: NonNullable<RebalanceReport['ove
     ? `${o.worst.what} at ${fixed(o.worst.loadingPercent, 0)} % of its ${o.worst.limit}`
     : 'a limit in the fast model, though the network re-solve finds every current within';
   if (r.moveLimit === 0) return `still over: ${what}; the move limit of 0 allows no move`;
-  const budget = r.moveLimit === null ? '' : ` with at most ${plural(r.moveLimit)}`;
+  const budget = `${scopeWords(r.search.onlyBoards)}${r.moveLimit === null ? '' : ` with at most ${plural(r.moveLimit)}`}`;
   return o.proven
     ? `still over: ${what}; no arrangement${budget} does better (proven, ${OVERLOAD_ORDER})`
     : `still over: ${what}; the least overload found${budget}, not proven (${OVERLOAD_ORDER})`;
@@ -88,17 +91,22 @@ function verdict(r: RebalanceReport): string {
   // The fast model keeps the ratings; where the re-solve puts one over all the same, the proof is the model's only.
   const ratingOver = r.capacityExceeded.filter((e) => e.limit === 'rating');
   const caused = ratingOver.some((e) => e.change !== 'unchanged');
+  // A proof over some boards' circuits says so: another board's circuit may do better.
+  const scope = r.search.onlyBoards ? ` among the arrangements${scopeWords(r.search.onlyBoards)}` : '';
   const proof = r.proven
     ? r.ratingsKept
       ? ratingOver.length
         ? `proven best within the file's ratings by the fast model, but the network re-solve puts a rating over (see the ${caused ? 'first note' : 'notes'})`
-        : "proven best within the file's ratings"
-      : 'proven best'
+        : `proven best within the file's ratings${scope}`
+      : `proven best${scope}`
     : r.score.gapPercent !== null
       ? `best found; at most ${fixed(r.score.gapPercent, 2)} % (${score(r.score.gap ?? 0)}) above the best possible`
       : 'best found; no bound';
-  if (r.nearBest)
-    return `${proof} with at most ${plural(r.moves.length)}: the fewest moves within ${fixed(r.nearBest.percent, 1)} % of the best score ${score(r.nearBest.bestScore)}`;
+  if (r.nearBest?.bestScore != null) {
+    // The best it is measured from keeps every limit; where a row over one scores lower, say which best.
+    const withinOnly = (r.moveTable ?? []).some((t) => !t.withinCapacity) ? ' of the answers within every limit' : '';
+    return `${proof} with at most ${plural(r.moves.length)}: the fewest moves within ${fixed(r.nearBest.percent, 1)} % of the best score${withinOnly}, ${score(r.nearBest.bestScore)}`;
+  }
   return `${proof}${r.moveLimit === null ? '' : ` with at most ${plural(r.moveLimit)}`}`;
 }
 
@@ -226,12 +234,19 @@ function moveTable(r: RebalanceReport): string {
     String(t.moves),
     fixed(t.score, digits),
     t.lowerBound === null ? '-' : fixed(t.lowerBound, digits),
-    ...(loading ? [t.largestLoadingPercent === null ? '-' : loadingCell(t.largestLoadingPercent)] : []),
+    ...(loading ? [t.largestLoadingPercent === null ? '-' : `${loadingCell(t.largestLoadingPercent)}${t.loadingSolved ? '*' : ' '}`] : []),
     // Over a rating or capacity, a row's answer is the least overload (proven: no answer with as many moves has less).
     t.withinCapacity ? (t.proven ? 'proven' : 'best found') : t.proven ? 'over a limit, least proven' : 'over a limit',
     String(t.movesUsed),
   ]);
-  const key = loading ? `\n${wrapText('largest loading: the most loaded current the file rates or the study caps, % of its limit as the search holds it (fast model; a rating scaled by how far the fast model reads the present wiring below the network re-solve); an answer over a limit is ranked by it first', '  ', '  ')}` : '';
+  const solvedRows = table.some((t) => t.loadingSolved);
+  const tightened = r.search.limitsTightened ? ', then tightened where the re-solve of an answer put a rating over that the fast model kept' : '';
+  const keyWords = [
+    'largest loading: the most loaded current the file rates or the study caps, % of its limit; an answer over a limit is ranked by it first.',
+    solvedRows ? '* network re-solve of that wiring (the present wiring, the answer given), as the notes give it. Other rows:' : 'Every row:',
+    `the fast model against each limit as the search holds it (a rating scaled by how far the fast model reads the present wiring above or below the network re-solve${tightened}), which a re-solve may put a few % either way.`,
+  ].join(' ');
+  const key = loading ? `\n${wrapText(keyWords, '  ', '  ')}` : '';
   return (
     renderTable(
       [
@@ -257,7 +272,7 @@ export function renderRebalanceReport(r: RebalanceReport): string {
   const s = (x: number) => fixed(x, digits);
   const parts: string[] = [
     r.board.name,
-    wrapText(`Rebalancing: ${r.search.movable} of ${r.search.circuits} circuits can move${r.search.pinned ? `, ${r.search.pinned} pinned` : ''}${installation ? ` (boards: ${r.boards.movable.join(', ')})` : ''}`, '', '  '),
+    wrapText(`Rebalancing: ${r.search.movable} of ${r.search.circuitsInInstallation} circuits can move${r.search.pinned ? `, ${r.search.pinned} pinned` : ''}${installation ? (r.search.onlyBoards ? ` (only those on ${r.search.onlyBoards.map((b) => `"${b}"`).join(', ')})` : ` (boards: ${r.boards.movable.join(', ')})`) : ''}`, '', '  '),
     wrapText(`Score: ${scoreWords(r)}`, '', '  '),
     `  fast model:       now ${s(r.score.before)}  →  after ${s(r.score.after)}   lower bound ${r.score.lowerBound === null ? '-' : s(r.score.lowerBound)}`,
     `  network re-solve: now ${s(r.solvedScore.before)}  →  after ${s(r.solvedScore.after)}`,

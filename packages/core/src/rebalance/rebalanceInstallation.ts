@@ -244,6 +244,35 @@ function solvedFigures(name: string, board: string, result: BoardResult): Condit
   });
 }
 
+/**
+ * Where the study lets only some boards' circuits move: the fewest moves with which an arrangement of every board's
+ * circuits (same move limit, pins and limits, file's ratings untightened) keeps every limit in the fast model, by
+ * local search; null where none found does.
+ */
+function fewestMovesOnEveryBoard(
+  tree: RebalanceTree,
+  study: unknown,
+  resolved: ResolvedRebalance,
+  options: RebalanceOptions,
+  o: ResolvedOptions,
+  solvedNow: readonly { readonly results: readonly BoardResult[] }[],
+  tie: number,
+): number | null {
+  const every = resolveRebalanceSpec({ ...(study as object), boards: undefined }, tree, { profile: options.profile, loadConditions: options.loadConditions });
+  const built = buildAssignmentProblem(tree, { ...every, conditions: resolved.conditions }, o.objective, solvedNow.map((x) => x.results.map((r) => r.phases.map((ph) => ph.current.magnitude))));
+  const p = built.problem;
+  const search: Search = { p, single: null, termBound: null };
+  const quick = { ...o, method: 'local-search' as const };
+  const limit = Math.min(every.moveLimit, p.circuitCount);
+  const wider = answerWithin(search, limit, quick, tie, []).best;
+  if (!withinLimits(wider)) return null;
+  // Below the forced moves no answer exists; the present wiring (no forced move) is over, or the restricted search would not be.
+  const forced = built.slots.filter((s) => !s.options.includes(s.present)).length;
+  const moves = fewestMovesWithin(search, Math.max(forced - 1, 0), wider, quick, tie);
+  // None: the present wiring is within before any tightening of the ratings, nothing the other boards add.
+  return moves > 0 ? moves : null;
+}
+
 /** Capacity below what no spread of the movable circuits can avoid is a bad study, whatever the move limit. */
 function checkCapacity(built: BuiltProblem, study: ResolvedRebalance, tie: number): void {
   if (study.lineCapacityA.every((c) => c === Infinity)) return;
@@ -358,8 +387,8 @@ function tightenRatedLimits(built: BuiltProblem, tree: RebalanceTree, over: read
 
 /**
  * The largest |q| / limit over the limited quantities, % (fast model, each limit as the search holds it: a rating
- * scaled by the fast model's reading of the present wiring, so over 100 % exactly where the search counts it over);
- * null where nothing is limited.
+ * scaled by the fast model's reading of the present wiring, above or below the re-solve, and tightened where a
+ * re-solve put an answer over it; so over 100 % exactly where the search counts it over); null where nothing is limited.
  */
 function largestLoadingPercent(p: AssignmentProblem, choice: Int32Array): number | null {
   const mags = magnitudesOf(sumQuantities(p, choice), new Float64Array(p.quantityCount));
@@ -418,7 +447,7 @@ function loadingsOf(
  * The overload of the present wiring and the answer, with what stays over most (network re-solve); null where both
  * keep every limit in the fast model the search ranks answers by (assignmentProblem.ts isBetter).
  */
-function overloadSummary(home: ScoredChoice, chosen: Answer, loadings: readonly Loading[], movesForWithin: number | null): Overload | null {
+function overloadSummary(home: ScoredChoice, chosen: Answer, loadings: readonly Loading[], movesForWithin: number | null, movesForWithinAllBoards: number | null): Overload | null {
   if (withinLimits(home) && withinLimits(chosen.best)) return null;
   const largest = (side: 'before' | 'after') => 100 * Math.max(0, ...loadings.map((x) => x[side]));
   const overSum = (side: 'before' | 'after') => 100 * loadings.reduce((t, x) => t + Math.max(0, x[side] - 1), 0);
@@ -430,6 +459,7 @@ function overloadSummary(home: ScoredChoice, chosen: Answer, loadings: readonly 
     proven: chosen.proven,
     worst: worst && worst.after > 1 ? { what: worst.what, loadingPercent: 100 * worst.after, limit: worst.limit } : null,
     movesForWithin,
+    movesForWithinAllBoards,
   };
 }
 
@@ -545,7 +575,7 @@ export function rebalanceInstallation(installation: Installation, study: unknown
   const o = resolveOptions(options);
   const tree = rebalanceTree(installation);
   const resolved = resolveRebalanceSpec(study, tree, { profile: options.profile, loadConditions: options.loadConditions });
-  // The present wiring, network-solved first: the file's ratings are scaled by how far the fast model reads below it.
+  // The present wiring, network-solved first: the file's ratings are scaled by how far the fast model reads above or below it.
   const conditionWords = (c: { name: string }, when: string) => (resolved.conditions.length > 1 ? `${c.name}, ${when}` : when);
   const solvedNow = resolved.conditions.map((c) => solveAtBoards(installationInCondition(tree, installation, c.factors), c.name, tree, conditionWords(c, 'as it stands')));
   const built = buildAssignmentProblem(tree, resolved, o.objective, solvedNow.map((x) => x.results.map((r) => r.phases.map((ph) => ph.current.magnitude))));
@@ -568,6 +598,8 @@ export function rebalanceInstallation(installation: Installation, study: unknown
     const main = answerWithin(search, limit, o, tie, []);
     let chosen = main;
     let table: MoveTableRow[] | null = null;
+    let tableChoices: Int32Array[] = [];
+    let nearBestScore: number | null = null;
     const wantTable = o.moveTable || resolved.nearBestPercent !== null;
     if (wantTable) {
       const rows: { moves: number; answer: Answer }[] = [];
@@ -595,8 +627,12 @@ export function rebalanceInstallation(installation: Installation, study: unknown
           chosen = { ...answer, lowerBound: withinLimits(a) ? main.lowerBound : null, proven, budgetReached: main.budgetReached };
         }
       }
-      if (resolved.nearBestPercent !== null) {
-        const best = Math.min(main.best.score, ...rows.map((r) => r.answer.best.score));
+      // Near-best ranks the answers that keep every limit: one over a limit ranks by its overload first, and a
+      // low score bought with an overload is no best to come near (the present wiring over a rating may score least).
+      const withinScores = [main, ...rows.map((r) => r.answer)].filter((a) => withinLimits(a.best)).map((a) => a.best.score);
+      if (resolved.nearBestPercent !== null && withinScores.length) {
+        const best = Math.min(...withinScores);
+        nearBestScore = best;
         const target = best * (1 + resolved.nearBestPercent / 100) + tie;
         const near = (a: Answer) => a.best.score <= target && withinLimits(a.best);
         let at = rows.findIndex((r) => near(r.answer));
@@ -619,9 +655,11 @@ export function rebalanceInstallation(installation: Installation, study: unknown
         movesUsed: a.best.moves,
         withinCapacity: withinLimits(a.best),
         largestLoadingPercent: largestLoadingPercent(p, a.best.choice),
+        loadingSolved: false,
       }));
+      tableChoices = rows.map((r) => r.answer.best.choice);
     }
-    return { main, chosen, table };
+    return { main, chosen, table, tableChoices, nearBestScore };
   };
   /** The work order of an answer and the installation re-solved with it. */
   const outcomeOf = (choice: Int32Array) => {
@@ -644,12 +682,14 @@ export function rebalanceInstallation(installation: Installation, study: unknown
     }));
     return { moves, moved, solved };
   };
-  let { main, chosen, table } = searchAnswers();
+  let { main, chosen, table, tableChoices, nearBestScore } = searchAnswers();
   let { moves, solved } = outcomeOf(chosen.best.choice);
+  let limitsTightened = false;
   // Where the re-solve puts a rating over that the fast model kept, that limit is tightened by as much and the search runs again.
   const magnitudesAfter = (c: Int32Array) => magnitudesOf(sumQuantities(p, c), new Float64Array(p.quantityCount));
   for (let pass = 0; pass < RATING_PASSES && tightenRatedLimits(built, tree, ratingExcesses(ratingChanges(resolved.conditions, solved, tree)), magnitudesAfter(chosen.best.choice)); pass++) {
-    ({ main, chosen, table } = searchAnswers());
+    limitsTightened = true;
+    ({ main, chosen, table, tableChoices, nearBestScore } = searchAnswers());
     ({ moves, solved } = outcomeOf(chosen.best.choice));
   }
   const choice = chosen.best.choice;
@@ -699,13 +739,25 @@ export function rebalanceInstallation(installation: Installation, study: unknown
   if (chosen.exactRan && !chosen.proven && chosen.budgetReached) notes.push(REBALANCE_NOTES.budgetReached(o.nodeBudget));
   if (chosen.lowerBound === null && withinLimits(chosen.best) && n > 0) notes.push(REBALANCE_NOTES.noBound);
   const excesses = withinLimits(chosen.best) ? [] : capacityExcesses(built, resolved, choice, tie);
+  // Where the study names the boards whose circuits may move, every proof is over those circuits only.
+  const onlyBoards = tree.boards.length > 1 && resolved.movableBoards.some((m) => !m) ? tree.names.filter((_, b) => resolved.movableBoards[b]) : null;
+  const limitWords = Number.isFinite(resolved.moveLimit) ? limit : null;
   const ratings = ratingChanges(resolved.conditions, solved, tree);
   const ratingOver = ratingExcesses(ratings);
   if (excesses.length) {
     const bounds = magnitudeBoundsWithMoveLimit(p, limit);
     const impossible = built.layouts.some((l) => l.lines.some((j, k) => bounds[j]! > resolved.lineCapacityA[k]! + tie));
     const several = tree.boards.length > 1;
-    notes.push(REBALANCE_NOTES.capacityNotMet(limit, impossible || (chosen.exactRan && chosen.proven), excesses.map((e) => REBALANCE_NOTES.excess({ ...e, line: label(e.line!) }, several))));
+    // The note quotes the re-solve's current, as the tables beside it do; the fast model's where only it has the line over.
+    const solvedA = (e: CapacityExcess) => {
+      const c = conditions.find((x) => x.name === e.condition && x.board === e.board)!;
+      return c.solved.after.lineA[tree.boards[0]!.phases.indexOf(e.line!)]!;
+    };
+    const words = excesses.map((e) => {
+      const currentA = solvedA(e);
+      return REBALANCE_NOTES.excess({ ...e, line: label(e.line!), currentA, fastA: currentA > e.capacityA ? null : e.currentA }, several);
+    });
+    notes.push(REBALANCE_NOTES.capacityNotMet(limitWords, onlyBoards, impossible || (chosen.exactRan && chosen.proven), words));
   }
   conditions.forEach(({ board, solved: { before: f } }) =>
     f.lineA.forEach((amps, k) => {
@@ -739,9 +791,18 @@ export function rebalanceInstallation(installation: Installation, study: unknown
   if (movesForWithin !== null) notes.push(REBALANCE_NOTES.limitKeepsOverload(limit, movesForWithin));
   else if (wider && wider.excess < chosen.best.excess - OVERLOAD_TIE)
     notes.push(REBALANCE_NOTES.limitKeepsLargerOverload(limit, wider.moves, largestLoadingPercent(p, wider.choice)!));
-  const overload = overloadSummary(homeNow, chosen, loadingsOf(resolved.conditions, solved, tree, resolved, label), movesForWithin);
-  const limitWords = Number.isFinite(resolved.moveLimit) ? limit : null;
-  const least = overload && { beforePercent: overload.largestLoadingPercent.before, afterPercent: overload.largestLoadingPercent.after, proven: overload.proven, moveLimit: limitWords };
+  const movesForWithinAllBoards = onlyBoards && !withinLimits(chosen.best) ? fewestMovesOnEveryBoard(tree, study, resolved, options, o, solvedNow, tie) : null;
+  if (onlyBoards && movesForWithinAllBoards !== null) notes.push(REBALANCE_NOTES.otherBoardsWithin(onlyBoards, movesForWithinAllBoards));
+  const overload = overloadSummary(homeNow, chosen, loadingsOf(resolved.conditions, solved, tree, resolved, label), movesForWithin, movesForWithinAllBoards);
+  const least = overload && { beforePercent: overload.largestLoadingPercent.before, afterPercent: overload.largestLoadingPercent.after, proven: overload.proven, moveLimit: limitWords, onlyBoards };
+  if (resolved.nearBestPercent !== null && nearBestScore === null) notes.push(REBALANCE_NOTES.nearBestUnused(resolved.nearBestPercent));
+  // The present wiring's and the answer's rows give the re-solve's loading, the one the notes and verdict quote.
+  const moveTable = table?.map((row, k): MoveTableRow => {
+    if (overload === null || row.largestLoadingPercent === null) return row;
+    const c = tableChoices[k]!;
+    const solvedLoading = row.movesUsed === 0 ? overload.largestLoadingPercent.before : c.every((x, i) => x === choice[i]) ? overload.largestLoadingPercent.after : null;
+    return solvedLoading === null ? row : { ...row, largestLoadingPercent: solvedLoading, loadingSolved: true };
+  }) ?? null;
   if (slipped.length) notes.unshift(REBALANCE_NOTES.overRatingAfterMoves(slipped.map(ratingWords)));
   if (traded.length && least) notes.unshift(REBALANCE_NOTES.overRatingTraded(traded.map(ratingWords), least));
   // A line the study's own capacity (no higher than its rating) already notes as over now is not noted twice.
@@ -798,9 +859,12 @@ export function rebalanceInstallation(installation: Installation, study: unknown
     capacityExceeded: [...excesses, ...ratingOver].sort((a, b) => b.overA - a.overA),
     ratingsKept: built.rated.length > 0,
     overload,
-    moveTable: o.moveTable || resolved.nearBestPercent !== null ? table : null,
-    nearBest: resolved.nearBestPercent !== null ? { percent: resolved.nearBestPercent, bestScore: main.best.score } : null,
+    moveTable: o.moveTable || resolved.nearBestPercent !== null ? moveTable : null,
+    nearBest: resolved.nearBestPercent !== null ? { percent: resolved.nearBestPercent, bestScore: nearBestScore, applied: nearBestScore !== null } : null,
     search: {
+      circuitsInInstallation: tree.circuits.filter((ref) => tree.boards[ref.board]!.loads[ref.load]!.origin === 'board').length,
+      onlyBoards,
+      limitsTightened,
       circuits: tree.circuits.filter((_, flat) => {
         const ref = tree.circuits[flat]!;
         return resolved.movableBoards[ref.board] && tree.boards[ref.board]!.loads[ref.load]!.origin === 'board';

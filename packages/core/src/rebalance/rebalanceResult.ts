@@ -52,8 +52,14 @@ export interface MoveTableRow {
    * and `proven` means no answer with this many moves has less.
    */
   readonly withinCapacity: boolean;
-  /** The largest loading of a current the study or the file limits, % of its limit (fast model); null where nothing is limited. */
+  /**
+   * The largest loading of a current the study or the file limits, % of its limit; null where nothing is limited.
+   * The network re-solve's where `loadingSolved` (the present wiring and the answer given, the figures the notes
+   * quote), else the fast model's against the limits as the search holds them (`search.limitsTightened`).
+   */
   readonly largestLoadingPercent: number | null;
+  /** True where `largestLoadingPercent` is the network re-solve's figure of this row's wiring. */
+  readonly loadingSolved: boolean;
 }
 
 /** A board the score does not read, solved before and after all the same (installations only). */
@@ -121,12 +127,20 @@ export interface Overload {
   readonly overSumPercent: { readonly before: number; readonly after: number };
   /** True when the answer keeps every limit in the fast model (the present wiring does not). */
   readonly within: boolean;
-  /** True when no arrangement within the move limit has a smaller overload in the fast model (branch-and-bound completed). */
+  /**
+   * True when no arrangement within the move limit has a smaller overload in the fast model (branch-and-bound
+   * completed): among the circuits of `boards.movable` only, where the study restricts the boards (`search.onlyBoards`).
+   */
   readonly proven: boolean;
   /** What the answer leaves most over, in words (the file's phase names), with its loading, %; null where nothing is. */
   readonly worst: { readonly what: string; readonly loadingPercent: number; readonly limit: 'rating' | 'capacity' } | null;
   /** Where the move limit keeps an overload that more moves remove: the moves an arrangement within every limit takes; else null. */
   readonly movesForWithin: number | null;
+  /**
+   * Where the study lets only some boards' circuits move and the answer stays over: the moves with which an
+   * arrangement of every board's circuits (same move limit) keeps every limit, found by local search; else null.
+   */
+  readonly movesForWithinAllBoards: number | null;
 }
 
 /** One board's neutral with harmonics (the harmonic study at the file's loads), now and after the moves. */
@@ -213,10 +227,21 @@ export interface RebalanceReport {
    */
   readonly overload: Overload | null;
   readonly moveTable: readonly MoveTableRow[] | null;
-  /** Fewest-moves mode: the % asked for and the best score it was measured from. */
-  readonly nearBest: { readonly percent: number; readonly bestScore: number } | null;
+  /**
+   * Fewest-moves mode: the % asked for and the best score it was measured from, the best of the answers that keep
+   * every limit (an answer over one ranks by its overload first). Where none does, `bestScore` is null and
+   * `applied` false: the answer is the least overload, whatever its moves.
+   */
+  readonly nearBest: { readonly percent: number; readonly bestScore: number | null; readonly applied: boolean } | null;
   readonly search: {
+    /** Circuits on the boards whose circuits may move (`boards.movable`). */
     readonly circuits: number;
+    /** Circuits in the whole installation (the board's, on a single board). */
+    readonly circuitsInInstallation: number;
+    /** The boards the study lets circuits move on, where it names fewer than every board; null where every board's may move. */
+    readonly onlyBoards: readonly string[] | null;
+    /** True when a rated limit was tightened after the network re-solve put an answer the fast model kept within over it (then searched again). */
+    readonly limitsTightened: boolean;
     readonly movable: number;
     readonly pinned: number;
     /** Branch-and-bound nodes visited, over every search the answer and its table needed. */

@@ -62,7 +62,7 @@ export const rebalanceSpecSchema = z
       .min(0)
       .max(100)
       .optional()
-      .describe('fewest-moves mode: the fewest moves whose score is within this % of the best score'),
+      .describe('fewest-moves mode: the fewest moves whose score is within this % of the best score of the answers that keep every rating and capacity; no effect where none does'),
     pinned: z.array(pinEntry).optional().describe('circuits that must not move, or must end on a given connection'),
     lineCapacityA: lineCapacity.optional().describe('largest current each line may carry in any condition, A (one number for every line), at each board where the score is measured'),
     conditions: z

@@ -19,15 +19,22 @@ interface RatingWords {
   readonly ratingA: number;
 }
 
-/** The overload the search left, for the notes: its largest loading now and after (network re-solve, %), whether proven least, the move limit (null: none). */
+/**
+ * The overload the search left, for the notes: its largest loading now and after (network re-solve, %), whether
+ * proven least, the move limit (null: none), the boards whose circuits the study lets move (null: every board).
+ */
 interface LeastOverload {
   readonly beforePercent: number;
   readonly afterPercent: number;
   readonly proven: boolean;
   readonly moveLimit: number | null;
+  readonly onlyBoards: readonly string[] | null;
 }
 
-const limitWords = (moveLimit: number | null) => (moveLimit === null ? '' : ` with at most ${moveLimit} move${moveLimit === 1 ? '' : 's'}`);
+/** What a proof covers: " of the circuits on "Shed"" where the study lets only some boards' circuits move. */
+export const scopeWords = (onlyBoards: readonly string[] | null) => (onlyBoards === null ? '' : ` of the circuits on ${onlyBoards.map(quoteText).join(', ')}`);
+const limitWords = (moveLimit: number | null, onlyBoards: readonly string[] | null = null) =>
+  `${scopeWords(onlyBoards)}${moveLimit === null ? '' : ` with at most ${moveLimit} move${moveLimit === 1 ? '' : 's'}`}`;
 const loadingWords = (percent: number) => percent.toFixed(0);
 
 const whereWords = (x: RatingWords) => `${x.board ? ` at ${quoteText(x.board)}` : ''}${x.condition ? ` in ${quoteText(x.condition)}` : ''}`;
@@ -117,10 +124,16 @@ export const REBALANCE_NOTES = {
   budgetReached: (nodes: number) =>
     `The exact search stopped at its budget of ${groupDigits(nodes)} nodes; the answer is the best found and its gap comes from the lower bound.`,
   noBound: 'The custom score broke the rule that it never falls when a figure grows, so no lower bound is reported.',
-  capacityNotMet: (moveLimit: number, provenImpossible: boolean, excesses: readonly string[]) =>
-    `${provenImpossible ? 'No assignment' : 'No assignment found'} with at most ${moveLimit} move${moveLimit === 1 ? '' : 's'} keeps every line within its capacity${provenImpossible ? ' (proven by the lower bound)' : ''}; this answer exceeds it least: ${excesses.join('; ')}.`,
-  excess: (e: { board: string; condition: string; line: PhaseLabel; currentA: number; capacityA: number; overA: number }, withBoard: boolean) =>
-    `line ${e.line}${withBoard ? ` at ${quoteText(e.board)}` : ''} in ${quoteText(e.condition)} carries ${e.currentA.toFixed(1)} A, ${e.overA.toFixed(1)} A over its ${e.capacityA.toFixed(0)} A capacity`,
+  /** `moveLimit` null where the study sets none (the circuit count is no limit the user gave). */
+  capacityNotMet: (moveLimit: number | null, onlyBoards: readonly string[] | null, provenImpossible: boolean, excesses: readonly string[]) =>
+    `${provenImpossible ? 'No assignment' : 'No assignment found'}${limitWords(moveLimit, onlyBoards)} keeps every line within its capacity${provenImpossible ? ' (proven by the lower bound)' : ''}; this answer exceeds it least: ${excesses.join('; ')}.`,
+  /** `fastA`: the fast model's figure where the network re-solve (`currentA`) has the line within its capacity. */
+  excess: (e: { board: string; condition: string; line: PhaseLabel; currentA: number; capacityA: number; fastA: number | null }, withBoard: boolean) =>
+    `line ${e.line}${withBoard ? ` at ${quoteText(e.board)}` : ''} in ${quoteText(e.condition)} carries ${
+      e.fastA === null
+        ? `${e.currentA.toFixed(1)} A, ${(e.currentA - e.capacityA).toFixed(1)} A over its ${e.capacityA.toFixed(0)} A capacity`
+        : `${e.fastA.toFixed(1)} A in the fast model, ${(e.fastA - e.capacityA).toFixed(1)} A over its ${e.capacityA.toFixed(0)} A capacity (${e.currentA.toFixed(1)} A in the network re-solve)`
+    }`,
   overCapacityNow: (board: string | null, line: PhaseLabel, amps: number, capacity: number, condition: string) =>
     `The present wiring puts ${amps.toFixed(1)} A on line ${line}${board ? ` at ${quoteText(board)}` : ''} in ${quoteText(condition)}, above its ${capacity.toFixed(0)} A capacity.`,
   /** A rated item in words: "line C", "the neutral", "the supply transformer", "the supply's unit on C-N". */
@@ -144,7 +157,7 @@ export const REBALANCE_NOTES = {
   overRatingTraded: (items: readonly RatingWords[], least: LeastOverload) =>
     `! To lower the worst overload, these moves put what the file rates over its rating, or further over: ${items
       .map((x) => `${x.what}${whereWords(x)} would carry ${x.afterA.toFixed(1)} A against its rating of ${x.ratingA.toFixed(1)} A (now ${x.nowA.toFixed(1)} A)`)
-      .join('; ')}. ${least.proven ? `Every arrangement${limitWords(least.moveLimit)} leaves something over its rating (proven)` : 'No arrangement found keeps every rating'}; with this one the most loaded current is at ${loadingWords(least.afterPercent)} % of its limit, against ${loadingWords(least.beforePercent)} % now. An overload remains: check each rating and its protection before the work, and reduce the load or upgrade what is over.`,
+      .join('; ')}. ${least.proven ? `Every arrangement${limitWords(least.moveLimit, least.onlyBoards)} leaves something over its rating (proven)` : 'No arrangement found keeps every rating'}; with this one the most loaded current is at ${loadingWords(least.afterPercent)} % of its limit, against ${loadingWords(least.beforePercent)} % now. An overload remains: check each rating and its protection before the work, and reduce the load or upgrade what is over.`,
   /** Rated items over their rating as things stand, and what the moves do to them. */
   overRatingNow: (items: readonly RatingWords[], moved: boolean, least: LeastOverload | null) => {
     const head = `Over its rating as things stand: ${items
@@ -154,19 +167,25 @@ export const REBALANCE_NOTES = {
     const lowered = moved && least !== null && loadingWords(least.afterPercent) !== loadingWords(least.beforePercent) && least.afterPercent < least.beforePercent;
     if (lowered)
       return `${head} The moves lower the largest loading from ${loadingWords(least.beforePercent)} % to ${loadingWords(least.afterPercent)} % of its limit${
-        least.proven ? `, and no arrangement${limitWords(least.moveLimit)} lowers the overload further (proven)` : ', the least overload found'
+        least.proven ? `, and no arrangement${limitWords(least.moveLimit, least.onlyBoards)} lowers the overload further (proven)` : ', the least overload found'
       }; what stays over needs its rating and protection checked.`;
     const why =
       least?.moveLimit === 0
         ? 'The move limit of 0 allows no move'
         : least?.proven
-          ? `No arrangement${limitWords(least.moveLimit)} lowers the overload (proven)`
+          ? `No arrangement${limitWords(least.moveLimit, least.onlyBoards)} lowers the overload (proven)`
           : 'Moving circuits has not brought it within';
     return `${head} ${why}: check the rating and the protection.`;
   },
   /** Where more moves than the limit allows would lower the overload, though not remove it (fast model figures). */
   limitKeepsLargerOverload: (limit: number, moves: number, widerPercent: number) =>
     `The move limit of ${limit} keeps a larger overload: with ${moves} move${moves === 1 ? '' : 's'} the most loaded current would be at about ${loadingWords(widerPercent)} % of its limit (fast model).`,
+  /** Fewest-moves mode where no answer keeps every limit: the rule ranks only answers within them, so it chose nothing. */
+  nearBestUnused: (percent: number) =>
+    `The fewest-moves rule (within ${percent.toFixed(1)} % of the best score) had no effect: it chooses only among answers that keep every rating and capacity, and none does here, so the answer is the one with the least overload, however many moves it takes.`,
+  /** Where the study lets only some boards' circuits move and moving others would keep every limit (fast model). */
+  otherBoardsWithin: (onlyBoards: readonly string[], moves: number) =>
+    `Only the circuits on ${onlyBoards.map(quoteText).join(', ')} were allowed to move. With the other boards' circuits free to move as well, ${moves} move${moves === 1 ? '' : 's'} would keep every limited current within its limit (fast model): run again without the board restriction for that work order.`,
   /** Where the move limit keeps an overload that more moves remove. */
   limitKeepsOverload: (limit: number, moves: number) =>
     `The move limit of ${limit} keeps an overload: with ${moves} move${moves === 1 ? '' : 's'} every limited current would be within its limit, the file's ratings and the study's capacities (fast model). Raise the limit for that work order.`,
