@@ -1,10 +1,11 @@
 /** `trivar correct`: size, choose and verify power-factor correction for a board. */
-import { boardOfInstallation, meteringPointIssues, boardHasHarmonicData, installationHasHarmonicData, compareCorrections, compareInstallationCorrections, correctBoard, correctInstallation, InputError, installationBoardIndex, installationInService, isInstallationInput, normaliseBoard, readPlainBoardText, readWellFormedBoard, readWellFormedCorrectionBoard, type CorrectionComparison, type CorrectionReport } from '@trivar/core';
+import { boardOfInstallation, meteringPointIssues, boardHasHarmonicData, installationHasHarmonicData, compareCorrections, compareInstallationCorrections, correctBoard, correctInstallation, InputError, installationBoardIndex, installationInService, isInstallationInput, normaliseBoard, readPlainBoardText, readWellFormedBoard, readWellFormedCorrectionBoard, type Board, type CorrectionComparison, type CorrectionReport } from '@trivar/core';
 import type { CliIo } from '../io.js';
 import { writeResult } from '../writeResult.js';
 import { renderCorrectionReport } from '../format/correctionReport.js';
 import { renderComparisonReport } from '../format/comparisonReport.js';
 import { renderInstallationComparison, renderInstallationCorrection } from '../format/installationCorrectionReport.js';
+import { UsageError } from '../exitCodes.js';
 import { assertOptionsFit, studySpec, type CorrectStudyOptions } from './correctStudyOptions.js';
 import { boardIndexOption } from './boardIndexOption.js';
 
@@ -39,6 +40,16 @@ export function inFileSection(error: unknown): unknown {
   );
 }
 
+/**
+ * `--measured-at` checked against the equipment's board: a point that is not upstream of it (or a name the
+ * file makes ambiguous) is a command line that does not fit the file, which alone is valid: a usage error
+ * naming the option (exit 2), as every other option that does not fit the file.
+ */
+function assertMeteringOption(board: Board, point: string | undefined, what: 'file' | 'installation'): void {
+  const issues = meteringPointIssues(board, point, '--measured-at');
+  if (issues.length) throw new UsageError(`the options do not fit the ${what}: ${issues.map((i) => i.message).join('; ')}`);
+}
+
 /** An installation file: the equipment on the board `--board` names (default: the main board), its effect on every board. */
 async function runCorrectInstallation(input: unknown, options: CorrectCommandOptions, io: CliIo): Promise<CorrectOutcome> {
   const spec = (await import('./schemaChecks.js')).parseInstallation(input);
@@ -54,8 +65,7 @@ async function runCorrectInstallation(input: unknown, options: CorrectCommandOpt
   const placement = boardName === undefined ? {} : { board: boardName };
   // Also checked before the study, so the error names the option.
   const equipmentBoard = boardOfInstallation(installation, installationBoardIndex(installation, boardName));
-  const issues = meteringPointIssues(equipmentBoard, options.measuredAt, '--measured-at');
-  if (issues.length) throw new InputError(issues, 'the options do not fit the installation');
+  assertMeteringOption(equipmentBoard, options.measuredAt, 'installation');
   assertOptionsFit(fromFile as Record<string, unknown>, options, equipmentBoard);
   // An installation file with harmonic data (spectra, a harmonics: section) gets the harmonic check
   // of the bank on its board, with detuned variants beside the plain one, as a board file does.
@@ -93,10 +103,7 @@ export async function runCorrect(file: string, options: CorrectCommandOptions, i
   const study = studySpec(spec.correction as Record<string, unknown> | undefined, options);
   // correctBoard and compareCorrections refuse a board whose supply has collapsed.
   const board = normaliseBoard(spec);
-  if (options.measuredAt !== undefined) {
-    const issues = meteringPointIssues(board, options.measuredAt, '--measured-at');
-    if (issues.length) throw new InputError(issues, 'the options do not fit the file');
-  }
+  assertMeteringOption(board, options.measuredAt, 'file');
   assertOptionsFit(spec.correction as Record<string, unknown> | undefined, options, board);
   try {
     // Without an arrangement (file or option) every arrangement that fits the board is compared.
