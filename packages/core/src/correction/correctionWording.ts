@@ -177,7 +177,7 @@ export const warningText = {
           : basis.sizedOn === 'step-state' && basis.stepState
             ? ` on line ${basis.stepState.lineLabel} ${stepStateWords(basis.stepState)}`
             : ' after correction';
-    return `the CT primary (${primaryA} A) is below the largest line current (${lineA} A)${when} at ${basis.placeWords}: the CT runs past its rating and saturates, and the controller misreads the reactive current; give controller.ctPrimaryA of at least ${Math.ceil(basis.currentA)} A (${suggestedA} A is the next standard rating at or above 1.25 × it)`;
+    return `the CT primary (${primaryA} A) is below the largest line current (${lineA} A)${when} at ${basis.placeWords}: the CT runs past its rating and saturates, and the controller misreads the reactive current; raise controller.ctPrimaryA to at least ${Math.ceil(basis.currentA)} A (${suggestedA} A is the next standard rating at or above 1.25 × it)`;
   },
   manySmallUnits: (w: {
     units: number;
