@@ -57,6 +57,21 @@ describe('a CT warned as too small names where its primary came from', () => {
   }, 60_000);
 });
 
+describe("a compensator's reactors stay in while its capacitor steps switch", () => {
+  // corner-bakery's compensator: fixed reactors C-A 17.73 kvar and B-N 4.53 kvar, three capacitor trim steps.
+  // With the reactors in and every step out line B carries 95.1 A, above 90.4 A before and 65.3 A after.
+  const bakery = ['correct', 'examples/corner-bakery.yaml', '--arrangement', 'balancing-compensator'];
+  it('a 95 A CT is warned, against 95.1 A in that state; a 125 A CT is not', () => {
+    const json = (ct: string) => JSON.parse(runTrivar([...bakery, '--ct', ct, '--json']).stdout) as { warnings: { code: string; threshold: number }[] };
+    const w = json('95').warnings.find((x) => x.code === 'ct-below-line-current');
+    expect(w).toBeDefined();
+    expect(w!.threshold).toBeCloseTo(95.14, 2);
+    expect(json('125').warnings.map((x) => x.code)).not.toContain('ct-below-line-current');
+    const text = runTrivar([...bakery, '--ct', '95']).stdout.replace(/\s+/g, ' ');
+    expect(text).toContain('checked against 95.1 A on line B with the reactors in and every switched step out, the largest line current there in any state of the steps (90.4 A before correction, 65.3 A with every step in)');
+  }, 60_000);
+});
+
 describe('where the CT goes, said alike in the text and the JSON', () => {
   // An invented laundry: ironers on the intake board, a steam press on a sub-board; ideal 400 V source.
   const dir = mkdtempSync(join(tmpdir(), 'trivar-ct-place-'));

@@ -7,7 +7,7 @@
  */
 import { describe, expect, it } from 'vitest';
 import { readFileSync } from 'node:fs';
-import { analyseSolution, correctBoard, normaliseBoard, parseBoard, readBoardText, solveNetwork, type EquipmentGroup } from '@trivar/core';
+import { analyseSolution, correctBoard, NumericalError, normaliseBoard, parseBoard, readBoardText, solveNetwork, type EquipmentGroup } from '@trivar/core';
 import type { BankStep } from '../../packages/core/src/correction/correctionResult.js';
 import { addCorrectionEquipment } from '../../packages/core/src/correction/equipment.js';
 import { largestSwitching, worstStepState } from '../../packages/core/src/correction/switchedStepStates.js';
@@ -59,6 +59,7 @@ describe('the worst state of the switched steps where the CT reads', () => {
     expect(worst!.phase).toBe('B');
     near(worst!.currentA, Math.sqrt(50 ** 2 + (5000 / VLN) ** 2), 1e-4);
     near(worst!.currentA, 54.49, 0.005);
+    expect(worst!.solved).toBe(true);
     expect(worst!.outputsIn).toEqual([]);
     expect(worst!.outputsOut).toEqual([1]);
     expect(worst!.fixedPart).toEqual({ reactors: true, capacitors: false });
@@ -83,6 +84,23 @@ describe('the worst state of the switched steps where the CT reads', () => {
     expect(worst!.outputsIn).toEqual([1]);
     expect(worst!.outputsOut).toEqual([2]);
     expect(worst!.fixedPart).toEqual({ reactors: false, capacitors: false });
+  });
+
+  it('a state that does not solve: the superposition gives the figure (exact here), said as not solved', () => {
+    const board = boardOf([
+      'name: Kiln shed',
+      'supply: { system: three-phase-4wire, voltage: { lineToLine: 400 }, frequencyHz: 50 }',
+      'loads: [ { name: Kiln heater, connection: B-N, kW: 11.5470054, pf: 1, model: constant-impedance } ]',
+    ]);
+    const equipment = [branchGroup('B-N', -5, -5, VLN), branchGroup('B-N', 5, 0, VLN)];
+    const after = analyseSolution(solveNetwork(addCorrectionEquipment(board, equipment)));
+    const refuse = (): never => {
+      throw new NumericalError('singular', 'no solution in this state');
+    };
+    const worst = worstStepState({ steps: [step(1, 'B-N', 5, VLN)], equipment, equipped: after, atCt: after, frequencyHz: 50, solveAtCt: refuse });
+    expect(worst!.solved).toBe(false);
+    expect(worst!.phase).toBe('B');
+    near(worst!.currentA, Math.sqrt(50 ** 2 + (5000 / VLN) ** 2), 1e-4);
   });
 
   it('one step and no fixed part: its two states are the ends, nothing to add', () => {

@@ -319,6 +319,8 @@ export interface StepStateCurrent {
   readonly currentA: number;
   /** By superposition of the steps' design-state currents (what chose the state), A. */
   readonly estimateA: number;
+  /** False where that state did not solve: `currentA` is then the superposition's figure. */
+  readonly solved: boolean;
   /** Controller outputs switched in and out in that state. */
   readonly outputsIn: readonly number[];
   readonly outputsOut: readonly number[];

@@ -591,7 +591,9 @@ export function ctCurrentWords(b: Pick<CtBasis, 'sizedOn' | 'currentA' | 'larges
   const sized = b.afterFrom === 'as-sized' ? ', as sized' : '';
   // A state of the steps between the ends draws more than either: it is the figure, and the state is named.
   if (b.sizedOn === 'step-state' && b.stepState)
-    return `${f1(b.currentA)} A on line ${b.stepState.lineLabel} ${stepStateWords(b.stepState)}, the largest line current there in any state of the steps (${f1(b.largestLineCurrentA.before)} A before correction, ${f1(b.largestLineCurrentA.after)} A with every step in${sized})`;
+    return `${f1(b.currentA)} A on line ${b.stepState.lineLabel} ${stepStateWords(b.stepState)}, the largest line current there in any state of the steps${
+      b.stepState.solved ? '' : ' (by superposition of the steps\' currents: that state did not solve)'
+    } (${f1(b.largestLineCurrentA.before)} A before correction, ${f1(b.largestLineCurrentA.after)} A with every step in${sized})`;
   // Two figures that print alike are one: "after correction (20.1 A before)" would read as a contradiction.
   if (f1(b.largestLineCurrentA.before) === f1(b.largestLineCurrentA.after)) return `${f1(b.currentA)} A, the largest line current there before and after correction${sized}`;
   return b.sizedOn === 'before'

@@ -22,6 +22,7 @@ import type { BoardResult } from '../analysis/boardResult.js';
 import { add, sub, type ComplexValue } from '../complex.js';
 import type { BankStep } from './correctionResult.js';
 import { cleanSusceptance, type EquipmentGroup } from './equipment.js';
+import { NumericalError } from '../errors.js';
 
 /** The state of the switched steps that draws the most current on one line, by superposition. */
 export interface LargestSwitching {
@@ -99,6 +100,8 @@ export interface WorstStepState {
   readonly currentA: number;
   /** The same by superposition of the steps' design-state currents, A (what chose the state). */
   readonly estimateA: number;
+  /** False where the state did not solve (the figure is then the superposition's). */
+  readonly solved: boolean;
   readonly outputsIn: readonly number[];
   readonly outputsOut: readonly number[];
   /** What stays in with the steps: reactors, fixed capacitors. */
@@ -139,14 +142,28 @@ export function worstStepState(input: StepStateInputs): WorstStepState | null {
   const worst = largestSwitching(base, stepCurrents);
   // Every step in is the design state; every step out without a fixed part is the board as it was.
   if (worst.stepsIn.every(Boolean) || (!hasFixed && !worst.stepsIn.some(Boolean))) return null;
-  const solved = input.solveAtCt(equipmentWithStepsOut(input.equipment, switched, worst.stepsIn, omega));
-  const largest = solved.phases.reduce((a, b) => (b.current.magnitude > a.current.magnitude ? b : a));
+  const largest = solvedLargest(() => input.solveAtCt(equipmentWithStepsOut(input.equipment, switched, worst.stepsIn, omega)));
   return {
-    phase: largest.phase,
-    currentA: largest.current.magnitude,
+    phase: largest?.phase ?? phases[worst.line]!,
+    currentA: largest?.currentA ?? worst.currentA,
     estimateA: worst.currentA,
+    solved: largest !== null,
     outputsIn: switched.filter((_, k) => worst.stepsIn[k]).map((s) => s.output!),
     outputsOut: switched.filter((_, k) => !worst.stepsIn[k]).map((s) => s.output!),
     fixedPart,
   };
+}
+
+/**
+ * The largest line current of a state solved, or null where it has no solution: the CT's check then
+ * takes the superposition's figure rather than end a study whose design state solved.
+ */
+function solvedLargest(solve: () => BoardResult): { phase: PhaseId; currentA: number } | null {
+  try {
+    const largest = solve().phases.reduce((a, b) => (b.current.magnitude > a.current.magnitude ? b : a));
+    return { phase: largest.phase, currentA: largest.current.magnitude };
+  } catch (error) {
+    if (error instanceof NumericalError) return null;
+    throw error;
+  }
 }
