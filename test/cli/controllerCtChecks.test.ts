@@ -29,6 +29,49 @@ describe('a current transformer given for the controller', () => {
   }, 60_000);
 });
 
+describe('a CT warned as too small names where its primary came from', () => {
+  // Riverside's cold store draws 208.4 A on its heaviest line before correction: at least 209 A, 300 A standard.
+  const riverside = 'examples/riverside-cold-store.yaml';
+  const withFileCt = (amps: number) => readFileSync(join(ROOT, riverside), 'utf8').replace('  controller: { outputs: 6 }', `  controller: { outputs: 6, ctPrimaryA: ${amps} }`);
+  const flat = (text: string) => text.replace(/\s+/g, ' ');
+  it('--ct: the option, which set it; the JSON keeps the study field, as the library gives it', () => {
+    const text = flat(runTrivar(['correct', riverside, '--arrangement', 'delta-bank', '--ct', '100']).stdout);
+    expect(text).toContain('the CT primary (100 A) is below the largest line current (208.4 A) before correction');
+    expect(text).toContain('raise --ct to at least 209 A (300 A is the next standard rating at or above 1.25 × it)');
+    expect(text).not.toContain('raise controller.ctPrimaryA');
+    const json = JSON.parse(runTrivar(['correct', riverside, '--arrangement', 'delta-bank', '--ct', '100', '--json']).stdout) as { warnings: { code: string; message: string; path: string }[] };
+    const w = json.warnings.find((x) => x.code === 'ct-below-line-current')!;
+    expect(w.path).toBe('controller.ctPrimaryA');
+    expect(w.message).toContain('raise controller.ctPrimaryA to at least 209 A');
+  }, 60_000);
+  it("the file's correction.controller.ctPrimaryA: that field, in the file", () => {
+    const r = runTrivar(['correct', '-', '--arrangement', 'delta-bank'], withFileCt(100));
+    expect(r.code).toBe(0);
+    expect(flat(r.stdout)).toContain('raise correction.controller.ctPrimaryA in the file to at least 209 A');
+  }, 60_000);
+  it('both: --ct overrides the file, and is the one named', () => {
+    const text = flat(runTrivar(['correct', '-', '--arrangement', 'delta-bank', '--ct', '150'], withFileCt(100)).stdout);
+    expect(text).toContain('the CT primary (150 A) is below the largest line current (208.4 A)');
+    expect(text).toContain('raise --ct to at least 209 A');
+    expect(text).not.toContain('correction.controller.ctPrimaryA in the file');
+  }, 60_000);
+});
+
+describe("a compensator's reactors stay in while its capacitor steps switch", () => {
+  // corner-bakery's compensator: fixed reactors C-A 17.73 kvar and B-N 4.53 kvar, three capacitor trim steps.
+  // With the reactors in and every step out line B carries 95.1 A, above 90.4 A before and 65.3 A after.
+  const bakery = ['correct', 'examples/corner-bakery.yaml', '--arrangement', 'balancing-compensator'];
+  it('a 95 A CT is warned, against 95.1 A in that state; a 125 A CT is not', () => {
+    const json = (ct: string) => JSON.parse(runTrivar([...bakery, '--ct', ct, '--json']).stdout) as { warnings: { code: string; threshold: number }[] };
+    const w = json('95').warnings.find((x) => x.code === 'ct-below-line-current');
+    expect(w).toBeDefined();
+    expect(w!.threshold).toBeCloseTo(95.14, 2);
+    expect(json('125').warnings.map((x) => x.code)).not.toContain('ct-below-line-current');
+    const text = runTrivar([...bakery, '--ct', '95']).stdout.replace(/\s+/g, ' ');
+    expect(text).toContain('checked against 95.1 A on line B with the reactors in and every switched step out, the largest line current there in any state of the steps (90.4 A before correction, 65.3 A with every step in)');
+  }, 60_000);
+});
+
 describe('where the CT goes, said alike in the text and the JSON', () => {
   // An invented laundry: ironers on the intake board, a steam press on a sub-board; ideal 400 V source.
   const dir = mkdtempSync(join(tmpdir(), 'trivar-ct-place-'));

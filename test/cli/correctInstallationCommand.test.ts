@@ -101,11 +101,19 @@ describe('--measured-at: the target judged away from the bank board', () => {
     expect(JSON.parse(json.stdout)).toEqual(JSON.parse(JSON.stringify(expected)));
   });
 
-  it('a board beside the bank: exit 3, naming --measured-at and the points it accepts', () => {
+  it('a board beside the bank: exit 2 (the command line does not fit the file), naming --measured-at and the points it accepts', () => {
     const r = runTrivar(['correct', works, '--board', 'Press shop', '--measured-at', 'Offices']);
-    expect(r.code).toBe(3);
+    expect(r.code).toBe(2);
     expect(r.stderr).toContain('--measured-at: expected origin');
     expect(r.stderr).toContain('"Press shop", "Main switchboard" (received "Offices")');
+    expect(r.stdout).toBe('');
+  });
+
+  it('a board fed from the bank\'s board (downstream, not upstream): exit 2, naming --measured-at', () => {
+    const r = runTrivar(['correct', works, '--board', 'Main switchboard', '--measured-at', 'Press shop']);
+    expect(r.code).toBe(2);
+    expect(r.stderr).toContain('the options do not fit the installation: --measured-at: expected origin');
+    expect(r.stderr).toContain('(received "Press shop")');
     expect(r.stdout).toBe('');
   });
 

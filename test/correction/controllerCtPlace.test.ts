@@ -167,7 +167,7 @@ describe("the controller's CT where the target is measured", () => {
     expect(w.value).toBe(50);
     expectClose(w.threshold!, 93.84, { rel: 1e-3, abs: 0 }, 'current the CT must carry');
     expect(w.message).toBe(
-      "the CT primary (50 A) is below the largest line current (93.9 A) before correction at the origin of the installation (the supply's terminals, where the service cable starts), where the target is measured: the CT runs past its rating and saturates, and the controller misreads the reactive current; give controller.ctPrimaryA of at least 94 A (125 A is the next standard rating at or above 1.25 × it)",
+      "the CT primary (50 A) is below the largest line current (93.9 A) before correction at the origin of the installation (the supply's terminals, where the service cable starts), where the target is measured: the CT runs past its rating and saturates, and the controller misreads the reactive current; raise controller.ctPrimaryA to at least 94 A (125 A is the next standard rating at or above 1.25 × it)",
     );
     // Measured at the press room, 50 A carries its 30.9 A: nothing to warn.
     const atBoard = correctInstallation(laundry, { arrangement: 'delta-bank', controller: { ctPrimaryA: 50 } }, { board: 'Press room' });
@@ -180,6 +180,6 @@ describe("the controller's CT where the target is measured", () => {
     const report = correctBoard(kilnShed, { arrangement: 'delta-bank', controller: { ctPrimaryA: 160 } });
     const w = warningOf(report.warnings, 'ct-below-line-current')!;
     expectClose(w.threshold!, 173.25, { rel: 1e-4, abs: 0 }, 'after figure');
-    expect(w.message).toMatch(/^the CT primary \(160 A\) is below the largest line current \(173\.2 A\) after correction at the incomer of Brook Street kiln shed, the board the equipment is on: .*give controller\.ctPrimaryA of at least 174 A \(250 A is the next standard rating at or above 1\.25 × it\)$/);
+    expect(w.message).toMatch(/^the CT primary \(160 A\) is below the largest line current \(173\.2 A\) after correction at the incomer of Brook Street kiln shed, the board the equipment is on: .*raise controller\.ctPrimaryA to at least 174 A \(250 A is the next standard rating at or above 1\.25 × it\)$/);
   });
 });

@@ -34,9 +34,9 @@ describe('a board named "origin"', () => {
     expect(origin.report.verification.metering.kW.before).toBeGreaterThan(board.report.verification.metering.kW.before);
   });
 
-  it('--measured-at origin is refused, naming the option and the word', () => {
+  it('--measured-at origin is refused as a command line that does not fit the file (exit 2), naming the option and the word', () => {
     const r = runTrivar(['correct', '-', '--board', 'Shed', '--arrangement', 'delta-bank', '--measured-at', 'origin'], yard('origin'));
-    expect(r.code).toBe(3);
+    expect(r.code).toBe(2);
     expect(r.stderr).toContain(`--measured-at: ${AMBIGUOUS}`);
     expect(r.stdout).toBe('');
   });

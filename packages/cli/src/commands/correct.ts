@@ -1,11 +1,12 @@
 /** `trivar correct`: size, choose and verify power-factor correction for a board. */
-import { boardOfInstallation, meteringPointIssues, boardHasHarmonicData, installationHasHarmonicData, compareCorrections, compareInstallationCorrections, correctBoard, correctInstallation, InputError, installationBoardIndex, installationInService, isInstallationInput, normaliseBoard, readPlainBoardText, readWellFormedBoard, readWellFormedCorrectionBoard, type CorrectionComparison, type CorrectionReport } from '@trivar/core';
+import { boardOfInstallation, meteringPointIssues, boardHasHarmonicData, installationHasHarmonicData, compareCorrections, compareInstallationCorrections, correctBoard, correctInstallation, InputError, installationBoardIndex, installationInService, isInstallationInput, normaliseBoard, readPlainBoardText, readWellFormedBoard, readWellFormedCorrectionBoard, type Board, type CorrectionComparison, type CorrectionReport } from '@trivar/core';
 import type { CliIo } from '../io.js';
 import { writeResult } from '../writeResult.js';
 import { renderCorrectionReport } from '../format/correctionReport.js';
 import { renderComparisonReport } from '../format/comparisonReport.js';
 import { renderInstallationComparison, renderInstallationCorrection } from '../format/installationCorrectionReport.js';
-import { assertOptionsFit, studySpec, type CorrectStudyOptions } from './correctStudyOptions.js';
+import { UsageError } from '../exitCodes.js';
+import { assertOptionsFit, fieldSources, studySpec, withFieldSources, type CorrectStudyOptions } from './correctStudyOptions.js';
 import { boardIndexOption } from './boardIndexOption.js';
 
 export interface CorrectCommandOptions extends CorrectStudyOptions {
@@ -39,6 +40,22 @@ export function inFileSection(error: unknown): unknown {
   );
 }
 
+/** A restater for the text report: warnings that name a study field name the option or file field that gave it. */
+function fieldsNamed(fromFile: Record<string, unknown> | undefined, options: CorrectStudyOptions): <T>(result: T) => T {
+  const sources = fieldSources(fromFile, options);
+  return (result) => withFieldSources(result, sources);
+}
+
+/**
+ * `--measured-at` checked against the equipment's board: a point that is not upstream of it (or a name the
+ * file makes ambiguous) is a command line that does not fit the file, which alone is valid: a usage error
+ * naming the option (exit 2), as every other option that does not fit the file.
+ */
+function assertMeteringOption(board: Board, point: string | undefined, what: 'file' | 'installation'): void {
+  const issues = meteringPointIssues(board, point, '--measured-at');
+  if (issues.length) throw new UsageError(`the options do not fit the ${what}: ${issues.map((i) => i.message).join('; ')}`);
+}
+
 /** An installation file: the equipment on the board `--board` names (default: the main board), its effect on every board. */
 async function runCorrectInstallation(input: unknown, options: CorrectCommandOptions, io: CliIo): Promise<CorrectOutcome> {
   const spec = (await import('./schemaChecks.js')).parseInstallation(input);
@@ -50,12 +67,13 @@ async function runCorrectInstallation(input: unknown, options: CorrectCommandOpt
   const { board: fileBoard, ...fromFile } = spec.correction ?? {};
   if (fileBoard !== undefined) installationBoardIndex(installation, fileBoard, 'correction.board');
   const study = studySpec(fromFile as Record<string, unknown>, options);
+  // The text names where a warned value came from: the option, or the file's field.
+  const named = fieldsNamed(fromFile as Record<string, unknown>, options);
   const boardName = options.board ?? fileBoard;
   const placement = boardName === undefined ? {} : { board: boardName };
   // Also checked before the study, so the error names the option.
   const equipmentBoard = boardOfInstallation(installation, installationBoardIndex(installation, boardName));
-  const issues = meteringPointIssues(equipmentBoard, options.measuredAt, '--measured-at');
-  if (issues.length) throw new InputError(issues, 'the options do not fit the installation');
+  assertMeteringOption(equipmentBoard, options.measuredAt, 'installation');
   assertOptionsFit(fromFile as Record<string, unknown>, options, equipmentBoard);
   // An installation file with harmonic data (spectra, a harmonics: section) gets the harmonic check
   // of the bank on its board, with detuned variants beside the plain one, as a board file does.
@@ -63,14 +81,14 @@ async function runCorrectInstallation(input: unknown, options: CorrectCommandOpt
   // Its harmonics section is checked before the study, so an error there is named at its own path.
   harmonic?.checkHarmonicsSection(spec);
   try {
-    if (harmonic) return harmonic.writeInstallationWithHarmonics(spec, installation, study, placement, options.json, io);
+    if (harmonic) return harmonic.writeInstallationWithHarmonics(spec, installation, study, placement, options.json, io, named);
     if (study.arrangement === undefined) {
       const compared = compareInstallationCorrections(installation, study, placement);
-      writeResult(io, compared, options.json, renderInstallationComparison);
+      writeResult(io, compared, options.json, (r) => renderInstallationComparison(named(r)));
       return { kind: 'comparison', comparison: compared.comparison };
     }
     const corrected = correctInstallation(installation, study, placement);
-    writeResult(io, corrected, options.json, renderInstallationCorrection);
+    writeResult(io, corrected, options.json, (r) => renderInstallationCorrection(named(r)));
     return { kind: 'single', report: corrected.report };
   } catch (error) {
     throw inFileSection(error);
@@ -91,32 +109,30 @@ export async function runCorrect(file: string, options: CorrectCommandOptions, i
   // one with a correction section and no other study with only that section's schema, which the study needs anyway.
   const spec = readWellFormedBoard(input) ?? readWellFormedCorrectionBoard(input) ?? (await import('./schemaChecks.js')).parseBoard(input);
   const study = studySpec(spec.correction as Record<string, unknown> | undefined, options);
+  const named = fieldsNamed(spec.correction as Record<string, unknown> | undefined, options);
   // correctBoard and compareCorrections refuse a board whose supply has collapsed.
   const board = normaliseBoard(spec);
-  if (options.measuredAt !== undefined) {
-    const issues = meteringPointIssues(board, options.measuredAt, '--measured-at');
-    if (issues.length) throw new InputError(issues, 'the options do not fit the file');
-  }
+  assertMeteringOption(board, options.measuredAt, 'file');
   assertOptionsFit(spec.correction as Record<string, unknown> | undefined, options, board);
   try {
     // Without an arrangement (file or option) every arrangement that fits the board is compared.
     if (study.arrangement === undefined) {
       if (boardHasHarmonicData(spec)) {
         const { writeComparisonWithHarmonics } = await import('./correctWithHarmonicData.js');
-        return { kind: 'comparison', comparison: writeComparisonWithHarmonics(spec, board, study, options.json, io) };
+        return { kind: 'comparison', comparison: writeComparisonWithHarmonics(spec, board, study, options.json, io, named) };
       }
       const comparison = compareCorrections(board, study);
-      writeResult(io, comparison, options.json, renderComparisonReport);
+      writeResult(io, comparison, options.json, (r) => renderComparisonReport(named(r)));
       return { kind: 'comparison', comparison };
     }
     // A board file with harmonic data (spectra, a harmonics: section) gets the harmonic check
     // of the bank, with detuned variants beside the plain one.
     if (boardHasHarmonicData(spec)) {
       const { writeCorrectionWithHarmonics } = await import('./correctWithHarmonicData.js');
-      return { kind: 'single', report: writeCorrectionWithHarmonics(spec, board, study, options.json, io) };
+      return { kind: 'single', report: writeCorrectionWithHarmonics(spec, board, study, options.json, io, named) };
     }
     const report = correctBoard(board, study);
-    writeResult(io, report, options.json, renderCorrectionReport);
+    writeResult(io, report, options.json, (r) => renderCorrectionReport(named(r)));
     return { kind: 'single', report };
   } catch (error) {
     // The study comes from the board file's correction section (and the options laid over it).

@@ -88,3 +88,38 @@ export function assertOptionsFit(fromFile: Section | undefined, o: CorrectStudyO
   // One line: a usage error's message has its control characters escaped.
   throw new UsageError(`the command-line options do not fit together or with the board file, which alone is valid (options given: ${asGiven}): ${lines.join('; ')}`);
 }
+
+/**
+ * Where the value of each study field an option sets came from, in words: the option where one was
+ * given (it overrides the file), else the file's own field (`correction.controller.ctPrimaryA in the
+ * file`); fields set by neither are left out (a default, or a study field no option sets).
+ */
+export function fieldSources(fromFile: Section | undefined, o: CorrectStudyOptions): ReadonlyMap<string, string> {
+  const sources = new Map<string, string>();
+  for (const option of STUDY_OPTIONS) {
+    const path = option.path.join('.');
+    if (option.value(o) !== undefined) sources.set(path, option.flag);
+    else if (hasPath(fromFile, path)) sources.set(path, `correction.${path} in the file`);
+  }
+  return sources;
+}
+
+/**
+ * A result whose warnings name a study field by its path in the study (`controller.ctPrimaryA`, the
+ * warning's own `path`) restated to name where the value came from: the option that gave it, or the
+ * file's field. For the text report: the JSON stays the library's result, whose `path` says the field.
+ */
+export function withFieldSources<T>(result: T, sources: ReadonlyMap<string, string>): T {
+  if (!sources.size) return result;
+  const restate = (value: unknown): unknown => {
+    if (Array.isArray(value)) return value.map(restate);
+    if (value === null || typeof value !== 'object') return value;
+    const entries = Object.entries(value).map(([key, v]) => [key, restate(v)] as const);
+    const restated = Object.fromEntries(entries) as Record<string, unknown>;
+    const { message, path } = restated;
+    const source = typeof path === 'string' ? sources.get(path) : undefined;
+    if (typeof message === 'string' && typeof path === 'string' && source !== undefined && typeof restated.code === 'string') restated.message = message.split(path).join(source);
+    return restated;
+  };
+  return restate(result) as T;
+}

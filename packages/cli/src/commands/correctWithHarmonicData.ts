@@ -25,17 +25,26 @@ import { renderComparisonHarmonics, renderCorrectionHarmonics } from '../format/
 import { comparedBoard, renderComparisonReport, tableNames } from '../format/comparisonReport.js';
 import { renderInstallationComparisonWithHarmonics, renderInstallationCorrectionWithHarmonics } from '../format/installationCorrectionReport.js';
 
+/** How the text report restates a result before it is rendered (correct.ts: warnings name where a value came from). */
+type Restate = <T>(result: T) => T;
+
 /** Every arrangement compared, each with its harmonic check; writes the result. */
-export function writeComparisonWithHarmonics(spec: BoardSpec, board: Board, study: Record<string, unknown>, json: boolean | undefined, io: CliIo): HarmonicComparison {
+export function writeComparisonWithHarmonics(spec: BoardSpec, board: Board, study: Record<string, unknown>, json: boolean | undefined, io: CliIo, named: Restate = (r) => r): HarmonicComparison {
   const comparison = compareWithHarmonics(spec, board, study);
-  writeResult(io, comparison, json, (c: HarmonicComparison) => renderComparisonReport(c) + renderComparisonHarmonics(c.harmonics, tableNames(comparedBoard(c))));
+  writeResult(io, comparison, json, (shown: HarmonicComparison) => {
+    const c = named(shown);
+    return renderComparisonReport(c) + renderComparisonHarmonics(c.harmonics, tableNames(comparedBoard(c)));
+  });
   return comparison;
 }
 
 /** One arrangement with its harmonic check; writes the result. */
-export function writeCorrectionWithHarmonics(spec: BoardSpec, board: Board, study: Record<string, unknown>, json: boolean | undefined, io: CliIo): HarmonicCorrectionReport {
+export function writeCorrectionWithHarmonics(spec: BoardSpec, board: Board, study: Record<string, unknown>, json: boolean | undefined, io: CliIo, named: Restate = (r) => r): HarmonicCorrectionReport {
   const checked = correctWithHarmonics(spec, board, study);
-  writeResult(io, checked, json, (r: HarmonicCorrectionReport) => renderCorrectionReport(r) + renderCorrectionHarmonics(r.harmonics));
+  writeResult(io, checked, json, (shown: HarmonicCorrectionReport) => {
+    const r = named(shown);
+    return renderCorrectionReport(r) + renderCorrectionHarmonics(r.harmonics);
+  });
   return checked;
 }
 
@@ -55,13 +64,14 @@ export function writeInstallationWithHarmonics(
   placement: CorrectInstallationOptions,
   json: boolean | undefined,
   io: CliIo,
+  named: Restate = (r) => r,
 ): CorrectOutcome {
   if (study.arrangement === undefined) {
     const compared = compareInstallationWithHarmonics(spec, installation, study, placement);
-    writeResult(io, compared, json, renderInstallationComparisonWithHarmonics);
+    writeResult(io, compared, json, (r) => renderInstallationComparisonWithHarmonics(named(r)));
     return { kind: 'comparison', comparison: compared.comparison };
   }
   const corrected = correctInstallationWithHarmonics(spec, installation, study, placement);
-  writeResult(io, corrected, json, renderInstallationCorrectionWithHarmonics);
+  writeResult(io, corrected, json, (r) => renderInstallationCorrectionWithHarmonics(named(r)));
   return { kind: 'single', report: corrected.report };
 }

@@ -24,7 +24,7 @@
  */
 import { CAPACITOR_DISCHARGE } from './capacitorDischarge.js';
 import { CORRECTION_DEFAULTS } from './correctionDefaults.js';
-import type { BankSelection, BankStep, ControllerSettings, CorrectionWarning, CtBasis, LineComparison } from './correctionResult.js';
+import type { BankSelection, BankStep, ControllerSettings, CorrectionWarning, CtBasis, LineComparison, StepStateCurrent } from './correctionResult.js';
 import type { ControllerSpec, Practice } from './correctionSpec.js';
 import { ctCurrentWords, ctPlaceWords, warningText } from './correctionWording.js';
 import { argumentIssueError, checkListArgument, checkNumberArgument, checkObjectArgument } from '../_internal/argumentChecks.js';
@@ -71,32 +71,37 @@ export interface CurrentTransformer {
 }
 
 /**
- * Where a controller's CT reads and the largest line current there. The CT must carry the larger of the
- * before and after figures: a bank that takes a line past unity, or a delta branch that moves current
- * between its lines, raises a line's current. Between the two ends the steps add a current that grows
- * with each step, and |I_before + t·ΔI| is convex in t, so the ends bound every step state (the voltage
- * moving with the steps aside).
+ * Where a controller's CT reads and the line currents it must carry there: before the equipment, with
+ * every step in, and in the worst state the switched steps can sit in. The two ends alone do not bound
+ * the rest: part of the equipment stays in while the steps switch (a compensator's reactors, a bank's
+ * fixed part), and steps on different branches switch apart, so the states are the corners of a box and
+ * not the points of one segment; switchedStepStates.ts finds the worst corner and re-solves it.
  */
 export interface CtReading {
   readonly place: CtBasis['place'];
   readonly point: string | null;
   readonly lines: readonly Pick<LineComparison, 'currentA'>[];
   readonly afterFrom: 'as-built' | 'as-sized';
+  /** The worst state of the switched steps other than every step in; null or absent where there is none. */
+  readonly stepState?: StepStateCurrent | null;
 }
 
-/** The CT's basis: where it reads and the larger of the before and after currents there, or a current the caller gave. */
+/** The CT's basis: where it reads and the largest of the before, after and worst step-state currents there, or a current the caller gave. */
 export function ctBasisOf(reading: CtReading | { readonly givenA: number }): CtBasis {
   if ('givenA' in reading)
-    return withWords({ place: 'board', point: null, largestLineCurrentA: null, afterFrom: null, sizedOn: 'given', currentA: reading.givenA });
+    return withWords({ place: 'board', point: null, largestLineCurrentA: null, afterFrom: null, stepState: null, sizedOn: 'given', currentA: reading.givenA });
   const before = Math.max(0, ...reading.lines.map((l) => l.currentA.before));
   const after = Math.max(0, ...reading.lines.map((l) => l.currentA.after));
+  const stepState = reading.stepState ?? null;
+  const sizedOn = stepState && stepState.currentA > Math.max(before, after) ? 'step-state' : after > before ? 'after' : 'before';
   return withWords({
     place: reading.place,
     point: reading.point,
     largestLineCurrentA: { before, after },
     afterFrom: reading.afterFrom,
-    sizedOn: after > before ? 'after' : 'before',
-    currentA: Math.max(before, after),
+    stepState,
+    sizedOn,
+    currentA: Math.max(before, after, stepState?.currentA ?? 0),
   });
 }
 

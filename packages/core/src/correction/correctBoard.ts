@@ -8,7 +8,11 @@
 import type { Board, PhaseId } from '../board/boardModel.js';
 import type { Arrangement, CorrectionSpec } from './correctionSpec.js';
 import { InputError, inputIssue } from '../errors.js';
-import { kvarFromSusceptance, reactorKvarOf, type EquipmentGroup } from './equipment.js';
+import { addCorrectionEquipment, kvarFromSusceptance, reactorKvarOf, type EquipmentGroup } from './equipment.js';
+import { worstStepState } from './switchedStepStates.js';
+import { meteringPlace, solveMeter } from './meteringPoint.js';
+import { analyseSolution } from '../analysis/analyseSolution.js';
+import { solveNetwork } from '../network/solveNetwork.js';
 import { parseCorrectionSpec } from './validateCorrectionSpec.js';
 import { resolveTarget, TARGET_SLACK, widthlessTargetPf, type TargetCheck } from './correctionTarget.js';
 import { judgeBalance } from './balanceTarget.js';
@@ -344,10 +348,27 @@ export function correctBoard(board: Board, spec: unknown): CorrectionReport {
   const useRefit = refit !== null && refit.used;
   const asBuilt = useRefit && selection ? selectionWithResizedReactors(selection, refit, verification.branches) : selection;
   // The controller's CT goes where it reads (where the target is measured, else the equipment's board) and
-  // carries the larger of the before and after currents there: chosen and checked on the build as verified.
+  // carries the largest current there: before, with every step in, or in the worst state of the switched
+  // steps (a fixed reactor with the capacitors out, trim steps apart): chosen and checked on the build as verified.
+  const meter = meteringPlace(board, target.measuredAt);
+  const worst =
+    asBuilt && asBuilt.controller
+      ? worstStepState({
+          steps: asBuilt.steps,
+          equipment: verification.equipment,
+          equipped: verification.after,
+          atCt: verification.metering?.after ?? verification.after,
+          frequencyHz: board.frequencyHz,
+          solveAtCt: (equipment) => {
+            const equipped = addCorrectionEquipment(board, equipment);
+            return meter ? solveMeter(equipped, meter) : analyseSolution(solveNetwork(equipped));
+          },
+        })
+      : null;
+  const stepState = worst && { ...worst, lineLabel: label(worst.phase) };
   const ctReading: CtReading = verification.metering
-    ? { place: 'metering-point', point: verification.metering.point, lines: verification.metering.lines, afterFrom: 'as-built' }
-    : { place: 'board', point: board.name, lines: verification.lines, afterFrom: 'as-built' };
+    ? { place: 'metering-point', point: verification.metering.point, lines: verification.metering.lines, afterFrom: 'as-built', stepState }
+    : { place: 'board', point: board.name, lines: verification.lines, afterFrom: 'as-built', stepState };
   const built = asBuilt && withCtReading(asBuilt, ctReading, parsed.controller ?? {});
   const resizedWords = (r: NonNullable<typeof refit>['reactors']) => r.map((x) => ({ ...x, branch: label(x.branch) }));
   const resizing = refit ? { reactors: refit.reactors, objectiveSized: refit.objectiveSized, objectiveResized: refit.objectiveResized, converged: refit.converged, used: useRefit, solves: refit.solves } : null;

@@ -281,8 +281,10 @@ export interface BankStep {
 
 /**
  * Where the controller's CT goes and the current it must carry there: the largest line current at that
- * point, before or after the equipment, whichever is larger (adding capacitors can raise a line's current:
- * a line taken past unity, or a delta branch moving current between its lines).
+ * point before the equipment, with every step in, or in the worst state the switched steps can sit in,
+ * whichever is largest (adding capacitors can raise a line's current: a line taken past unity, or a delta
+ * branch moving current between its lines; a fixed reactor with the capacitor steps out, or trim steps on
+ * different branches, can raise it past both ends: switchedStepStates.ts).
  */
 export interface CtBasis {
   /** `board`: the incomer of the board the equipment is on; `metering-point`: where `target.measuredAt` puts the target. */
@@ -293,14 +295,37 @@ export interface CtBasis {
   readonly largestLineCurrentA: { readonly before: number; readonly after: number } | null;
   /** What the `after` figure is of: the board re-solved with the units as built, or the continuous sizing. */
   readonly afterFrom: 'as-built' | 'as-sized' | null;
-  /** Which figure the CT is chosen on and checked against: the larger of the two, or the one given. */
-  readonly sizedOn: 'before' | 'after' | 'given';
+  /**
+   * The worst state of the switched steps there other than every step in, re-solved; null where there is
+   * none to add (no switched step, or a single one and no fixed part), or the caller gave the figure.
+   */
+  readonly stepState: StepStateCurrent | null;
+  /** Which figure the CT is chosen on and checked against: the largest of them, or the one given. */
+  readonly sizedOn: 'before' | 'after' | 'step-state' | 'given';
   /** That figure, A. */
   readonly currentA: number;
   /** Where the CT goes, in words ("the origin of the installation (…), where the target is measured"). */
   readonly placeWords: string;
   /** The figure in words ("112.7 A, the largest line current there before correction (95.3 A after)"). */
   readonly currentWords: string;
+}
+
+/** The largest line current where the CT reads in the worst state of the switched steps (see CtBasis). */
+export interface StepStateCurrent {
+  /** The line it flows in, and that line as the file names it. */
+  readonly phase: PhaseId;
+  readonly lineLabel: string;
+  /** Re-solved, A. */
+  readonly currentA: number;
+  /** By superposition of the steps' design-state currents (what chose the state), A. */
+  readonly estimateA: number;
+  /** False where that state did not solve: `currentA` is then the superposition's figure. */
+  readonly solved: boolean;
+  /** Controller outputs switched in and out in that state. */
+  readonly outputsIn: readonly number[];
+  readonly outputsOut: readonly number[];
+  /** What stays in whatever the controller does: reactors, fixed capacitors. */
+  readonly fixedPart: { readonly reactors: boolean; readonly capacitors: boolean };
 }
 
 export interface ControllerSettings {

@@ -6,7 +6,7 @@ import type { PhaseLabel } from '../board/conventions/phaseNames.js';
 import type { PhaseId } from '../board/boardModel.js';
 import type { PowerFactorSense } from '../analysis/boardResult.js';
 import type { Arrangement, TargetDefinition } from './correctionSpec.js';
-import type { BuildVerdict, CtBasis, SmallBranch, SparedBranch, TargetName } from './correctionResult.js';
+import type { BuildVerdict, CtBasis, SmallBranch, StepStateCurrent, SparedBranch, TargetName } from './correctionResult.js';
 import { argumentIssueError, checkListArgument, checkNumberArgument, checkObjectArgument, checkTextArgument, checkWordArgument } from '../_internal/argumentChecks.js';
 import { starWordOf, type StarWord } from '../board/conventions/regionWords.js';
 import { REGIONS, type Region } from '../board/conventions/region.js';
@@ -166,11 +166,18 @@ export const warningText = {
   partialBalance: (negative: number, zero: number, reactors: readonly PhaseLabel[]) =>
     `the capacitor-only compensator meets the power-factor target but balances only partly (|I2|/|I1| = ${negative.toFixed(1)} %, |I0|/|I1| = ${zero.toFixed(1)} %)${reactors.length ? `; full balance needs reactors on ${reactors.join(', ')}` : ''}`,
   /** @param suggestedA the primary trivar would choose for that current (1.25 × it, next standard rating) */
-  ctBelowLineCurrent: (primaryA: number, basis: Pick<CtBasis, 'currentA' | 'sizedOn' | 'placeWords'>, suggestedA: number) => {
+  ctBelowLineCurrent: (primaryA: number, basis: Pick<CtBasis, 'currentA' | 'sizedOn' | 'placeWords' | 'stepState'>, suggestedA: number) => {
     // One decimal where it shows the figure above the primary; two where one would print them equal.
     const lineA = Number(f1(basis.currentA)) > primaryA ? f1(basis.currentA) : basis.currentA.toFixed(2);
-    const when = basis.sizedOn === 'given' ? '' : basis.sizedOn === 'before' ? ' before correction' : ' after correction';
-    return `the CT primary (${primaryA} A) is below the largest line current (${lineA} A)${when} at ${basis.placeWords}: the CT runs past its rating and saturates, and the controller misreads the reactive current; give controller.ctPrimaryA of at least ${Math.ceil(basis.currentA)} A (${suggestedA} A is the next standard rating at or above 1.25 × it)`;
+    const when =
+      basis.sizedOn === 'given'
+        ? ''
+        : basis.sizedOn === 'before'
+          ? ' before correction'
+          : basis.sizedOn === 'step-state' && basis.stepState
+            ? ` on line ${basis.stepState.lineLabel} ${stepStateWords(basis.stepState)}`
+            : ' after correction';
+    return `the CT primary (${primaryA} A) is below the largest line current (${lineA} A)${when} at ${basis.placeWords}: the CT runs past its rating and saturates, and the controller misreads the reactive current; raise controller.ctPrimaryA to at least ${Math.ceil(basis.currentA)} A (${suggestedA} A is the next standard rating at or above 1.25 × it)`;
   },
   manySmallUnits: (w: {
     units: number;
@@ -585,10 +592,25 @@ export function ctPlaceWords(place: CtBasis['place'], point: string | null): str
   return point === null ? 'the incomer of the board the equipment is on' : `the incomer of ${point}, the board the equipment is on`;
 }
 
+/** A state of the switched steps in words: "with the reactors in and every switched step out", "with outputs 1 and 3 in, the others out". */
+export function stepStateWords(st: Pick<StepStateCurrent, 'outputsIn' | 'outputsOut' | 'fixedPart'>): string {
+  const kept = st.fixedPart.reactors && st.fixedPart.capacitors ? 'the reactors and the fixed capacitors' : st.fixedPart.reactors ? 'the reactors' : st.fixedPart.capacitors ? 'the fixed part' : null;
+  const list = (xs: readonly number[]) => (xs.length === 1 ? `${xs[0]}` : `${xs.slice(0, -1).join(', ')} and ${xs.at(-1)}`);
+  const outputs = !st.outputsIn.length
+    ? 'every switched step out'
+    : `output${st.outputsIn.length === 1 ? '' : 's'} ${list(st.outputsIn)} in and ${st.outputsOut.length === 1 ? `output ${st.outputsOut[0]}` : `outputs ${list(st.outputsOut)}`} out`;
+  return kept ? `with ${kept} in and ${outputs}` : `with ${outputs}`;
+}
+
 /** The current a controller's CT is chosen on or checked against, in words (CtBasis.currentWords). */
-export function ctCurrentWords(b: Pick<CtBasis, 'sizedOn' | 'currentA' | 'largestLineCurrentA' | 'afterFrom'>): string {
+export function ctCurrentWords(b: Pick<CtBasis, 'sizedOn' | 'currentA' | 'largestLineCurrentA' | 'afterFrom' | 'stepState'>): string {
   if (b.sizedOn === 'given' || b.largestLineCurrentA === null) return `${f1(b.currentA)} A, the line current given (lineCurrentA)`;
   const sized = b.afterFrom === 'as-sized' ? ', as sized' : '';
+  // A state of the steps between the ends draws more than either: it is the figure, and the state is named.
+  if (b.sizedOn === 'step-state' && b.stepState)
+    return `${f1(b.currentA)} A on line ${b.stepState.lineLabel} ${stepStateWords(b.stepState)}, the largest line current there in any state of the steps${
+      b.stepState.solved ? '' : ' (by superposition of the steps\' currents: that state did not solve)'
+    } (${f1(b.largestLineCurrentA.before)} A before correction, ${f1(b.largestLineCurrentA.after)} A with every step in${sized})`;
   // Two figures that print alike are one: "after correction (20.1 A before)" would read as a contradiction.
   if (f1(b.largestLineCurrentA.before) === f1(b.largestLineCurrentA.after)) return `${f1(b.currentA)} A, the largest line current there before and after correction${sized}`;
   return b.sizedOn === 'before'

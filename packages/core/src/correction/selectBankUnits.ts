@@ -55,7 +55,7 @@ export interface SelectBankUnitsOptions {
   readonly controller?: ControllerSpec;
   /** Target the controller holds (its band). @defaultValue `{ pf: 0.95 }` */
   readonly target?: TargetSpec;
-  /** Largest line current where the CT reads, A, to choose it on or check it against. @defaultValue the larger of the before and after figures of the sizing's line comparison (the equipment's board) */
+  /** Largest line current where the CT reads, A, to choose it on or check it against. @defaultValue the larger of the before and after figures of the sizing's line comparison (the equipment's board); correctBoard checks the worst state of the switched steps as well, on the build it verified */
   readonly lineCurrentA?: number;
   /** Capacitance tolerance, %. @defaultValue `{ minusPercent: 5, plusPercent: 10 }` (IEC 60831-1, from memory) */
   readonly capacitanceTolerance?: CapacitanceToleranceSpec;
