@@ -16,12 +16,12 @@ describe('supply-path estimates on single-phase and split-phase boards', () => {
     const text = flat(r.stdout);
     // By hand: X_path = 0.1 × 0.1 (line) + 0.1 × 0.1 (neutral) = 0.020 Ω; S_sc,X = 230²/0.020 = 2645 kVA.
     expect(text).toContain('X_path = 0.0200 Ω, the reactance of the loop out on the line and back on the neutral (S_sc,X = 2645 kVA');
-    // The bank built is 405.6 µF: X_C = 7.85 Ω, h = √(7.85/0.020) = 19.8 (Q_C at the solved voltage puts it at 19.88).
+    // The bank built is 405.6 µF: X_C = 1/(2π·50·405.6e-6) = 7.848 Ω, h = √(7.848/0.020) = 19.81, from X and C
+    // alone (Q_C at the solved voltage over S_sc,X at nominal had put it at 19.88).
     const h = Number(/√\(S_sc,X\/Q_C\) = (\d+\.\d+)/.exec(text)?.[1]);
-    expect(h).toBeGreaterThan(19.7);
-    expect(h).toBeLessThan(20);
+    expect(h).toBe(19.81);
     expect(text).toContain('within 10 % of order 19');
-    expect(text).toMatch(/the bank and the supply inductance resonate near harmonic order 19\.9 \(within 10 % of the 19th\)/);
+    expect(text).toMatch(/the bank and the supply inductance resonate near harmonic order 19\.8 \(within 10 % of the 19th\)/);
     // Rise: 6.7 kvar × 0.020 Ω / 230² = 0.25 %, the solved figure too.
     expect(text).toMatch(/≈ Q_C\/S_sc,X = 6\.7 kvar \(at the corrected board's voltage\) \/ 2645 kVA = 0\.25 % \(Q_C·X\/V²: the reactance, not \|Z\|\); solved 0\.25 %/);
   });

@@ -201,13 +201,13 @@ describe('verifyCorrection: voltage rise and resonance of a bank on a transforme
     expect(v.voltageRise.flagged).toBe(false);
   });
 
-  it('resonance order √(X_C/X) ≈ 7.35: from the reactance, S_sc,X = S_sc·√(1 + (R/X)²)', () => {
-    // X/R 8: S_sc,X = 16.667 MVA × √(1 + 1/64) = 16.796 MVA; √(16 796/300) = 7.349 (√(S_sc/Q_C) from |Z| gave 7.321).
-    expectClose(v.resonanceOrder!, Math.sqrt((1000 / 0.06) * Math.sqrt(1 + 1 / 64) / v.voltageRise.capacitorKvar), { rel: 1e-12, abs: 0 }, 'h_r');
+  it('resonance order √(X_C/X) ≈ 7.48: from the reactance, S_sc,X = S_sc·√(1 + (R/X)²)', () => {
+    // X/R 8: S_sc,X = 16.667 MVA × √(1 + 1/64) = 16.796 MVA; 300 kvar at nominal voltage (X_C and X alone, not the
+    // kvar at the raised solved voltage, which gave 7.35): √(16 796/300) = 7.482 (√(S_sc/Q_C) from |Z| gives 7.454).
+    expectClose(v.resonanceOrder!, Math.sqrt(((1000 / 0.06) * Math.sqrt(1 + 1 / 64)) / 300), { rel: 1e-12, abs: 0 }, 'h_r');
     expectClose(v.resonanceCapacitance.supplyReactanceOhm!, (0.06 * 400 ** 2) / 1e6 * (8 / Math.sqrt(65)), { rel: 1e-12, abs: 0 }, 'X_path');
     expect(v.resonanceNearOrders).toEqual([7]);
-    expect(v.resonanceOrder!).toBeGreaterThan(7.2);
-    expect(v.resonanceOrder!).toBeLessThan(7.5);
+    expect(v.resonanceOrder!).toBeCloseTo(7.4825, 4);
     expect(v.warnings.map((w) => w.code)).toContain('resonance');
   });
 

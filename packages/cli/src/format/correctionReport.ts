@@ -309,12 +309,26 @@ function pathReactanceWords(v: CorrectionVerification): string {
   return `${x} per line, the supply path's reactance${neutral}${unequal}`;
 }
 
-/** The steady rise estimate: ≈ Q_C·X/V² from the path's reactance (a capacitor's current is reactive), or why there is none. */
-function voltageRiseEstimateWords(vr: CorrectionVerification['voltageRise']): string {
+/** The steady rise estimate: the worst line's X·I (a capacitor's current is reactive), Q_C·X/V² where all lines share it alike, or why there is none. */
+function voltageRiseEstimateWords(vr: CorrectionVerification['voltageRise'], v: CorrectionVerification): string {
   if (vr.shortCircuitKVA === null) return 'ideal source (none)';
   if (vr.estimateWithheld === 'reactors') return 'not estimated from Q_C/S_sc,X: the reactors lower the lines they sit on while the capacitors raise theirs, so the net kvar gives neither line\'s rise';
+  if (vr.estimateWithheld === 'nothing-added') return 'none estimated, no capacitors are added';
   if (vr.estimatePercent === null) return "not estimated, the supply path has no reactance (a capacitor's current raises the voltage by about I·X)";
+  if (v.resonanceCapacitance.unequalCurrents && vr.estimateLine !== null) {
+    const neutral = v.resonanceCapacitance.neutralReactanceOhm === null ? '' : ' plus the neutral\'s Z·I_N';
+    const average = (100 * vr.capacitorKvar) / (vr.reactanceShortCircuitKVA ?? Infinity);
+    return `≈ ${fixed(vr.estimatePercent, 2)} % on line ${labelsOf(v)(vr.estimateLine)}, the line these unequal capacitors raise most (Z_line·I_line${neutral} along its voltage, over V, with ${fixed(vr.capacitorKvar, 1)} kvar at the corrected board's voltage; the average over the conductors, Q_C/S_sc,X, gives ${fixed(average, 2)} %)`;
+  }
   return `≈ Q_C/S_sc,X = ${fixed(vr.capacitorKvar, 1)} kvar (at the corrected board's voltage) / ${fixed(vr.reactanceShortCircuitKVA ?? 0, 0)} kVA = ${fixed(vr.estimatePercent, 2)} % (Q_C·X/V²: the reactance, not |Z|)`;
+}
+
+/** The orders of the LC network beside the lowest one that fall in the watched range, in words. */
+function otherOrdersWords(v: CorrectionVerification): string {
+  const watched = CORRECTION_DEFAULTS.resonanceWatchedOrders;
+  const top = Math.max(...watched) * (1 + CORRECTION_DEFAULTS.resonanceNearFraction);
+  const others = v.resonanceOrders.slice(1).filter((h) => h <= top);
+  return others.length ? `; the network also resonates at h = ${others.map((h) => fixed(h, 2)).join(', ')}` : '';
 }
 
 /** The supply resonance line: its estimate and what it is worked from, or why there is none. */
@@ -327,8 +341,14 @@ function resonanceWords(v: CorrectionVerification, detuned: boolean): string {
     if (c.reactanceShortCircuitKVA === null && c.totalKvar > 0) return `${head}: not estimated, the supply path has no reactance (nothing inductive to resonate with)`;
     return `${head}: none, no capacitors are added and no load on the board draws leading vars`;
   }
-  // From the path's reactance: the classic √(S_sc/Q_C) takes S_sc from |Z|, right only where X ≫ R.
-  const formula = c.reactorKvar > 0 ? '√((S_sc,X + Q_L)/Q_C)' : '√(X_C/X_path) = √(S_sc,X/Q_C)';
+  // From the path's reactance: the classic √(S_sc/Q_C) takes S_sc from |Z|, right only where X ≫ R. Where the
+  // capacitors' own current pattern is not a mode of the network, √(S_sc,X/Q_C) lies above the lowest order.
+  const at = `h = ${fixed(v.resonanceOrder, 2)} (× ${v.after.board.frequencyHz} Hz = ${fixed(v.resonanceOrder * v.after.board.frequencyHz, 0)} Hz)`;
+  const figure = !c.lowestBelowSingleNode
+    ? `h = ${c.reactorKvar > 0 ? '√((S_sc,X + Q_L)/Q_C)' : '√(X_C/X_path) = √(S_sc,X/Q_C)'} = ${at.slice(4)}${otherOrdersWords(v)}`
+    : c.unequalCurrents
+      ? `${at}, the lowest resonance of the supply path's reactances with the capacitances (√(S_sc,X/Q_C) = ${fixed(c.singleNodeOrder ?? 0, 2)} at nominal voltage weighs the conductors by the capacitors' own currents and lies above it)${otherOrdersWords(v)}`
+      : `${at}, the lines together against the neutral${c.neutralTieReactanceOhm === null ? '' : ` (its path X ${fixed(c.neutralTieReactanceOhm, 4)} Ω)`}; the lines against each other at √(X_C/X_path) = ${fixed(c.singleNodeOrder ?? 0, 2)}`;
   const parts = [
     ...(c.addedKvar > 0 ? [`${fixed(c.addedKvar, 1)} kvar added`] : []),
     ...(c.onBoardKvar > 0 ? [`${fixed(c.onBoardKvar, 1)} kvar of leading loads already on the board (${c.loadsOnBoard.join(', ')}), taken as capacitance`] : []),
@@ -336,7 +356,7 @@ function resonanceWords(v: CorrectionVerification, detuned: boolean): string {
   const reactors = c.reactorKvar > 0 ? `; Q_L = ${fixed(c.reactorKvar, 1)} kvar of reactors added` : '';
   const path = `; X_path = ${pathReactanceWords(v)} (S_sc,X = ${fixed(c.reactanceShortCircuitKVA ?? 0, 0)} kVA; its resistance damps the peak but hardly moves it)`;
   const near = v.resonanceNearOrders.length ? `; within 10 % of order ${v.resonanceNearOrders.join(', ')}` : '';
-  return `${head} at about h = ${formula} = ${fixed(v.resonanceOrder, 2)} (× ${v.after.board.frequencyHz} Hz = ${fixed(v.resonanceOrder * v.after.board.frequencyHz, 0)} Hz)${near}; Q_C = ${parts.join(' + ')}${reactors}${path}`;
+  return `${head} at about ${figure}${near}; Q_C = ${parts.join(' + ')}${reactors}${path}`;
 }
 
 /** `detuned`: the bank's steps sit behind reactors, so √(S_sc/Qc) does not apply (the harmonic check covers it). */
@@ -349,7 +369,7 @@ function checksBlock(v: CorrectionVerification, detuned = false): string {
   );
   const vr = v.voltageRise;
   out.push(
-    `steady voltage rise: ${voltageRiseEstimateWords(vr)}; solved ${fixed(vr.solvedPercent, 2)} %; flag above ${vr.limitPercent} %${vr.flagged ? '  ← FLAGGED' : ''}`,
+    `steady voltage rise: ${voltageRiseEstimateWords(vr, v)}; solved ${fixed(vr.solvedPercent, 2)} %; flag above ${vr.limitPercent} %${vr.flagged ? '  ← FLAGGED' : ''}`,
   );
   out.push(resonanceWords(v, detuned));
   if (v.lightLoad) {

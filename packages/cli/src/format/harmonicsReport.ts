@@ -140,7 +140,7 @@ export function scanTable(s: ResonanceScan, label: Label): string {
     [
       { header: 'bank state', align: 'left' },
       { header: 'kvar on' },
-      { header: '√(Xc/Xpath)' },
+      { header: 'estimated h' },
       { header: 'scanned peaks (h)', align: 'left' },
       { header: 'largest |Z| ohm', align: 'left' },
       { header: 'near orders', align: 'left' },

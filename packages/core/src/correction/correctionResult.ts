@@ -470,6 +470,22 @@ export interface ResonanceCapacitance {
    * current each conductor carries (a lone line-to-line capacitor on a three-phase board loads two lines).
    */
   readonly unequalCurrents: boolean;
+  /**
+   * The parallel resonance orders of the supply path's reactances (per line, and the neutral's) with these
+   * capacitances and reactors, lowest first: the eigen-orders of the small LC network at the board's terminals
+   * (capacitorPathReactance.ts). One for a single loop or a balanced delta bank, up to one per terminal otherwise.
+   */
+  readonly orders: readonly number[];
+  /**
+   * True where the lowest order lies below the single-node figure √((S_sc,X + Q_L)/Q_C): the capacitors' own
+   * current pattern is not one of the network's modes (unequal line-to-neutral capacitors, or a star bank whose
+   * lines can swing together against the neutral), so √(X_C/X_path) does not name it.
+   */
+  readonly lowestBelowSingleNode: boolean;
+  /** The single-node figure √((S_sc,X + Q_L)/Q_C) at nominal voltage (capacitorPathReactance.ts); null without capacitors. */
+  readonly singleNodeOrder: number | null;
+  /** The neutral path's reactance, ohm, where a capacitor is tied to the neutral (its common mode swings against it); else null. */
+  readonly neutralTieReactanceOhm: number | null;
 }
 
 export interface VoltageRise {
@@ -479,13 +495,20 @@ export interface VoltageRise {
   readonly shortCircuitKVA: number | null;
   /** S_sc,X from the supply path's reactance as the capacitors' current meets it, kVA; null where the path has no reactance. */
   readonly reactanceShortCircuitKVA: number | null;
-  /** ΔV/V ≈ Q_C/S_sc,X = Q_C·X/V², %: a capacitor's current is reactive, so the path's reactance raises the voltage, not |Z|; null where the path has no reactance. */
+  /**
+   * The worst line's first-order rise, %: X_line·I_line plus the neutral's X·I_N along that line's voltage (a
+   * capacitor's current is reactive, so the path's reactance raises the voltage, not |Z|); Q_C/S_sc,X = Q_C·X/V²
+   * for a single loop or a balanced bank. Null where the path has no reactance or nothing is added.
+   */
   readonly estimatePercent: number | null;
   /**
    * Why there is no estimate although the path has reactance: 'reactors' where the equipment holds reactors as
-   * well as capacitors (a balancing compensator), which lower some lines while the capacitors raise others; else null.
+   * well as capacitors (a balancing compensator), which lower some lines while the capacitors raise others;
+   * 'nothing-added' where no capacitor is built (nothing carries a capacitor current); else null.
    */
-  readonly estimateWithheld: 'reactors' | null;
+  readonly estimateWithheld: 'reactors' | 'nothing-added' | null;
+  /** The line `estimatePercent` is worked for: the one whose voltage the capacitor currents raise most; null without an estimate. */
+  readonly estimateLine: PhaseId | null;
   /** Largest rise of a line-to-neutral voltage magnitude in the solved board, % of nominal. */
   readonly solvedPercent: number;
   readonly limitPercent: number;
@@ -543,13 +566,16 @@ export interface CorrectionVerification {
   readonly tolerance: { readonly low: ToleranceCase; readonly high: ToleranceCase };
   readonly voltageRise: VoltageRise;
   /**
-   * Parallel resonance with the supply, h_r = √(X_C/X_path) = √((S_sc,X + Q_L)/Q_C): S_sc,X from the
-   * supply path's reactance alone (the classic √(S_sc/Q_C) with S_sc from |Z| assumes X ≫ R, and behind a
-   * cable feeder names too low an order), Q_C the capacitors added and the leading loads already on the
-   * board, Q_L the reactors added; null on an ideal source or with no capacitance at all.
+   * The lowest parallel resonance with the supply: the lowest eigen-order of the LC network of the supply
+   * path's reactances (not |Z|: the classic √(S_sc/Q_C) assumes X ≫ R, and behind a cable feeder names too
+   * low an order) with the capacitors added, the leading loads already on the board and the reactors added;
+   * √(X_C/X_path) = √((S_sc,X + Q_L)/Q_C) for a single loop or a balanced delta bank. Null on an ideal source
+   * or with no capacitance at all.
    */
   readonly resonanceOrder: number | null;
-  /** The harmonic orders `resonanceOrder` lies within ±10 % of, among those watched (RESONANCE_WATCHED_ORDERS); empty when none. */
+  /** Every resonance order of the supply path with the capacitance, lowest first (`resonanceCapacitance.orders`, those within 0.5 % of the one before left out); empty where `resonanceOrder` is null. */
+  readonly resonanceOrders: readonly number[];
+  /** The watched harmonic orders (CORRECTION_DEFAULTS.resonanceWatchedOrders) within ±10 % of any of `resonanceOrders`; empty when none. */
   readonly resonanceNearOrders: readonly number[];
   /** What `resonanceOrder` is worked from, kvar at the solved voltages with the equipment in. */
   readonly resonanceCapacitance: ResonanceCapacitance;

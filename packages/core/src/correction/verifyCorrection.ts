@@ -62,19 +62,25 @@ const verifyOptionsSchema = z.strictObject({
 export const resonanceNearOrders = (order: number): number[] =>
   CORRECTION_DEFAULTS.resonanceWatchedOrders.filter((h) => Math.abs(order - h) <= CORRECTION_DEFAULTS.resonanceNearFraction * h);
 
+/** Two resonance orders closer than this fraction are one for the words (half a percent, well inside any scan's resolution). */
+const SAME_ORDER = 0.005;
+
+/** `orders` (ascending) without those within SAME_ORDER of the one before. */
+const distinctOrders = (orders: readonly number[]): number[] => orders.filter((h, k) => k === 0 || h > orders[k - 1]! * (1 + SAME_ORDER));
+
 /** The branches of the loads added to `board` to make `equipped` (the equipment), every part as `equipped` has it. */
 const addedBranches = (board: Board, equipped: Board): LoadBranch[] => equipped.loads.slice(board.loads.length).flatMap((l) => l.branches);
 
 /**
  * The shunt capacitance the supply's inductance resonates with: the capacitors added, and every
  * board load that draws leading vars (a fixed bank written as a load, a capacitive filter), taken as
- * capacitance at its solved output, as the added capacitors are. Added reactors are kept apart:
- * in parallel with the supply inductance they raise the order, h = √((S_sc,X + Q_L)/Q_C) (the
- * single-node estimate, common practice, no source; reactive loads other than capacitive ones are
- * left out, as the usual √(S_sc/Q_C) leaves them). S_sc,X is the path's reactance alone as those
- * capacitors' current meets it (capacitorPathReactance.ts: the line and the neutral on a single-phase
- * board, the neutral's share where their currents do not cancel there), so h = √(X_C/X_path) also behind
- * a cable feeder whose R is not small.
+ * capacitance, as the added capacitors are. Added reactors sit in parallel with the supply inductance
+ * and raise the order (for a balanced set h = √((S_sc,X + Q_L)/Q_C), common practice, no source);
+ * reactive loads other than capacitive ones are left out, as the usual √(S_sc/Q_C) leaves them. The
+ * orders are those of the LC network of the path's reactances and these capacitances and reactors
+ * (capacitorPathReactance.ts), from X and C alone, so independent of the voltage the board settles at;
+ * for a single loop or a balanced delta bank they are h = √(X_C/X_path), also behind a cable feeder whose
+ * R is not small. The kvar figures are at the solved voltages, as delivered.
  */
 function resonanceCapacitance(board: Board, corrected: Board, branches: readonly BranchSizing[], after: BoardResult): ResonanceCapacitance {
   const addedKvar = branches.reduce((s, b) => s + (b.element === 'capacitor' ? b.kvarAtAppliedV : 0), 0);
@@ -95,8 +101,12 @@ function resonanceCapacitance(board: Board, corrected: Board, branches: readonly
 }
 
 /** X_path (the line and neutral loop on a single-phase board, per line otherwise), the neutral's X where the capacitors' current uses it, and S_sc,X. */
-function pathFigures(board: Board, path: CapacitorPathReactance | null): Pick<ResonanceCapacitance, 'supplyReactanceOhm' | 'neutralReactanceOhm' | 'reactanceShortCircuitKVA' | 'unequalCurrents'> {
-  if (path === null) return { supplyReactanceOhm: null, neutralReactanceOhm: null, reactanceShortCircuitKVA: null, unequalCurrents: false };
+function pathFigures(
+  board: Board,
+  path: CapacitorPathReactance | null,
+): Pick<ResonanceCapacitance, 'supplyReactanceOhm' | 'neutralReactanceOhm' | 'reactanceShortCircuitKVA' | 'unequalCurrents' | 'orders' | 'lowestBelowSingleNode' | 'singleNodeOrder' | 'neutralTieReactanceOhm'> {
+  if (path === null) return { supplyReactanceOhm: null, neutralReactanceOhm: null, reactanceShortCircuitKVA: null, unequalCurrents: false, orders: [], lowestBelowSingleNode: false, singleNodeOrder: null, neutralTieReactanceOhm: null };
+  const lowest = path.resonanceOrders[0];
   const x = (board.system === 'single-phase' ? shortCircuitPathImpedance(board) : supplyPathImpedance(board)).im;
   // n·V²/X_path is S_sc,X for a single loop or a balanced bank; anything else is weighed by the current each conductor carries.
   const balanced = (board.phases.length * board.nominalLineToNeutralV ** 2) / x;
@@ -105,30 +115,46 @@ function pathFigures(board: Board, path: CapacitorPathReactance | null): Pick<Re
     neutralReactanceOhm: path.throughNeutral ? (neutralPathImpedance(board)?.im ?? null) : null,
     reactanceShortCircuitKVA: path.shortCircuitVA / 1000,
     unequalCurrents: Math.abs(path.shortCircuitVA - balanced) > 1e-9 * balanced,
+    orders: path.resonanceOrders,
+    // Where the capacitors' own current pattern is not a mode of the network, √(S_sc,X/Q_C) lies above the lowest
+    // order; within half a percent (a compensator's slightly unequal branches) it still names it.
+    lowestBelowSingleNode: lowest !== undefined && path.singleNodeOrder !== null && lowest < path.singleNodeOrder * (1 - SAME_ORDER),
+    singleNodeOrder: path.singleNodeOrder,
+    neutralTieReactanceOhm: path.tiedToNeutral ? (neutralPathImpedance(board)?.im ?? null) : null,
   };
 }
 
 /**
  * The steady rise: a capacitor's current is reactive, so it raises the voltage by about I·X of the path
- * it flows in, ΔV/V ≈ Q_C·X/V² = Q_C/S_sc,X (S_sc,X from the reactance as that current meets it). The
- * classic Q_C/S_sc with S_sc from |Z| overstates it wherever R is not small beside X.
+ * it flows in. Each line's rise to the neutral bar is −Z_line·I_line − Z_N·I_N along that line's voltage
+ * (capacitorPathReactance.ts), and the estimate is the worst line's: for a single loop or a balanced bank
+ * that is Q_C·X/V² = Q_C/S_sc,X (R drops out), but the average Q_C/S_sc,X understates the line an unequal
+ * bank loads most (a split-phase bank of 4.4 and 0.7 kvar: 0.42 % against 0.54 % on its large line, 0.53 %
+ * solved). The classic Q_C/S_sc with S_sc from |Z| overstates it wherever R is not small beside X.
+ * Scaled to Q_C at the solved voltage, as the kvar delivered.
  */
 function voltageRise(board: Board, capacitors: readonly LoadBranch[], capacitorKvar: number, before: BoardResult, after: BoardResult, limitPercent: number): VoltageRise {
   const ssc = boardShortCircuitVA(board);
-  const sscX = capacitorPathReactance(board, capacitors)?.shortCircuitVA ?? null;
+  const path = capacitorPathReactance(board, capacitors);
+  const sscX = path?.shortCircuitVA ?? null;
   // A compensator's reactors lower the lines they sit on while its capacitors raise theirs: the net kvar
   // over S_sc,X is neither line's rise (hillside-workshop's compensator: 0.91 % against 4.52 % solved), so
   // only the solved rise is given. A detuned branch (reactor in series) draws leading vars: not one of these.
   const largest = Math.max(0, ...capacitors.map((b) => Math.abs(b.sNominal.im)));
   const withReactors = capacitors.some((b) => b.sNominal.im > 1e-9 * largest);
-  const estimatePercent = sscX === null || withReactors ? null : (100 * capacitorKvar * 1000) / sscX;
+  // Nothing built (no unit fits, or nothing needed): no capacitor current, no rise to estimate.
+  const nothingAdded = !withReactors && !(capacitorKvar > 0);
+  const worst = path?.worstRise ?? null;
+  const estimatePercent =
+    sscX === null || withReactors || nothingAdded || worst === null || !(path!.capacitorVA > 0) ? null : (100 * worst.perUnit * capacitorKvar * 1000) / path!.capacitorVA;
   const solvedPercent = Math.max(...after.phases.map((p, k) => (100 * (p.voltage.magnitude - before.phases[k]!.voltage.magnitude)) / judgedNominalOf(board).ln));
   return {
     capacitorKvar,
     shortCircuitKVA: ssc === null ? null : ssc / 1000,
     reactanceShortCircuitKVA: sscX === null ? null : sscX / 1000,
     estimatePercent,
-    estimateWithheld: withReactors ? 'reactors' : null,
+    estimateLine: estimatePercent === null || worst === null ? null : (worst.line as PhaseId),
+    estimateWithheld: withReactors ? 'reactors' : nothingAdded && sscX !== null ? 'nothing-added' : null,
     solvedPercent,
     limitPercent,
     flagged: Math.max(estimatePercent ?? -Infinity, solvedPercent) > limitPercent,
@@ -257,10 +283,13 @@ export function verifyCorrection(board: Board, options: VerifyCorrectionOptions)
   if (rise.flagged) warn('voltage-rise', warningText.voltageRise('the bank at the design load', Math.max(rise.estimatePercent ?? -Infinity, rise.solvedPercent), riseLimit), rise.solvedPercent, riseLimit);
   const ssc = boardShortCircuitVA(board);
   const resonance = resonanceCapacitance(board, corrected, branches, after);
-  const sscX = resonance.reactanceShortCircuitKVA === null ? null : resonance.reactanceShortCircuitKVA * 1000;
-  const resonanceOrder = sscX !== null && resonance.totalKvar > 0 ? Math.sqrt((sscX + resonance.reactorKvar * 1000) / (resonance.totalKvar * 1000)) : null;
-  const nearOrders = resonanceOrder === null ? [] : resonanceNearOrders(resonanceOrder);
-  if (resonanceOrder !== null && nearOrders.length) warn('resonance', warningText.lowResonance(resonanceOrder, resonance.onBoardKvar > 0 ? (resonance.addedKvar > 0 ? 'both' : 'board') : 'bank', nearOrders), resonanceOrder, null);
+  // Orders that print alike (a balanced bank's two sequence modes) are one order for the words.
+  const orders = resonance.totalKvar > 0 ? distinctOrders(resonance.orders) : [];
+  const resonanceOrder = orders[0] ?? null;
+  const nearOrders = [...new Set(orders.flatMap(resonanceNearOrders))].sort((a, b) => a - b);
+  const nearResonances = orders.filter((h) => resonanceNearOrders(h).length > 0);
+  if (nearResonances.length)
+    warn('resonance', warningText.lowResonance(nearResonances, resonance.onBoardKvar > 0 ? (resonance.addedKvar > 0 ? 'both' : 'board') : 'bank', nearOrders), nearResonances[0]!, null);
   if (ssc === null && capacitorKvar > 0) warn('ideal-source', warningText.idealSource);
   const overloads = overloadsCaused(before, after);
   for (const o of overloads) warn('overload-caused', warningText.overloadCaused(o.message), o.value, o.threshold);
@@ -359,6 +388,7 @@ export function verifyCorrection(board: Board, options: VerifyCorrectionOptions)
     tolerance: { low: { capacitanceFactor: 1 - minus, check: low }, high: { capacitanceFactor: 1 + plus, check: high } },
     voltageRise: rise,
     resonanceOrder,
+    resonanceOrders: orders,
     resonanceNearOrders: nearOrders,
     resonanceCapacitance: resonance,
     lightLoad,

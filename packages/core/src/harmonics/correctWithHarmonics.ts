@@ -23,7 +23,8 @@ import { parseCorrectionSpec } from '../correction/validateCorrectionSpec.js';
 import { defaultPractice } from '../correction/selectBankUnits.js';
 import { TYPICAL_CATALOGUES, catalogueUnitOf } from '../correction/unitCatalogues.js';
 import type { BankStep, CorrectionReport, CorrectionWarning } from '../correction/correctionResult.js';
-import { arrangementNames, CORRECTION_CAUTIONS, reportSummary, selectionWording } from '../correction/correctionWording.js';
+import { arrangementNames, CORRECTION_CAUTIONS, reportSummary, selectionWording, warningText } from '../correction/correctionWording.js';
+import { resonanceNearOrders } from '../correction/verifyCorrection.js';
 import { CORRECTION_DEFAULTS } from '../correction/correctionDefaults.js';
 import type { CapacitorUnitSpec } from '../correction/correctionSpec.js';
 import { resolveHarmonicModel, type BankModel, type HarmonicModel } from './harmonicModel.js';
@@ -186,7 +187,7 @@ function asDetuned(report: CorrectionReport, p: number, percent: number, plainSe
     ...report,
     summary,
     warnings: withoutEstimate(report.warnings),
-    verification: { ...report.verification, resonanceOrder: null, resonanceNearOrders: [], warnings: withoutEstimate(report.verification.warnings) },
+    verification: { ...report.verification, resonanceOrder: null, resonanceOrders: [], resonanceNearOrders: [], warnings: withoutEstimate(report.verification.warnings) },
     selection: {
       ...selection,
       ...(plainSelection ? { catalogue: plainSelection.catalogue, catalogueTitle: plainSelection.catalogueTitle, catalogueNote: plainSelection.catalogueNote } : {}),
@@ -430,12 +431,14 @@ export function correctWithBankCheck<Check>(
   // the verdict's summary and the warnings say so beside the figures (the check itself is below them).
   const failsCheck = chosen === null && shown.report.selection !== null && (shown.report.selection.units ?? 0) > 0;
   const failure = `no variant passes the harmonic check (${runs.map((v) => `${v.summary.name}: ${why(v)}`).join(' | ')})`;
+  const warnings = shown === plain ? deferredToScan(plain) : shown.report.warnings;
   return {
     ...shown.report,
     summary: failsCheck ? `${shown.report.summary}; but it fails the harmonic check: ${failure}` : shown.report.summary,
     warnings: failsCheck
-      ? [...shown.report.warnings, { code: 'harmonic-check-failed', message: `${failure}: do not install it as built; a tuned filter or a specialist harmonic study is needed`, path: null, value: null, threshold: null }]
-      : shown.report.warnings,
+      ? [...warnings, { code: 'harmonic-check-failed', message: `${failure}: do not install it as built; a tuned filter or a specialist harmonic study is needed`, path: null, value: null, threshold: null }]
+      : warnings,
+    verification: shown === plain ? { ...shown.report.verification, warnings: deferredToScan(plain, shown.report.verification.warnings) } : shown.report.verification,
     cautions: shown.report.cautions.map((c) => (c === HARMONICS_NOT_CHECKED ? harmonicsChecked(wording.file) : c)),
     harmonics: {
       summary,
@@ -445,6 +448,19 @@ export function correctWithBankCheck<Check>(
       basis: `each variant is sized for the same target with its effective fundamental output Q_r(U/U_r)²/(1 − p) and units rated for U/(1 − p) with the study’s voltage margin; every correction check is re-run, then the resonance scan and the capacitor duty of every step combination${wording.basis ? `; ${wording.basis}` : ''}`,
     },
   };
+}
+
+/**
+ * The plain bank's resonance warning where the harmonic check scanned that bank in the same study: the estimate
+ * from the supply path names an order, the scan says whether a present order lies near a peak. Without this the
+ * answer read "needs a harmonic study and probably a detuned bank" beside a check that passed the plain bank.
+ */
+function deferredToScan<Check>(plain: VariantRun<Check>, warnings: readonly CorrectionWarning[] = plain.report.warnings): CorrectionWarning[] {
+  const v = plain.report.verification;
+  const near = v.resonanceOrders.filter((h) => resonanceNearOrders(h).length > 0);
+  return warnings.map((w) =>
+    w.code === 'resonance' && near.length ? { ...w, message: warningText.lowResonanceScanned(near, v.resonanceNearOrders, plain.summary.lowestResonanceOrder, plain.summary.passes) } : w,
+  );
 }
 
 export interface ArrangementHarmonics {

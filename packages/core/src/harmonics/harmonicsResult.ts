@@ -155,10 +155,11 @@ export interface ScanCombination {
   /** Effective fundamental output of what is on, at nominal voltage, three-phase kvar. */
   readonly capacitorKvar: number;
   /**
-   * h = √(X_C/X_path) = √(S_sc,X/Q_c), S_sc,X from the supply path's reactance alone as the parts on put their
-   * current in it, the line and the neutral on a single-phase board (capacitorPathReactance.ts; the classic
-   * √(S_sc/Q_c) with S_sc from |Z| assumes X ≫ R); null without a source reactance, without capacitors, or for a detuned bank (the
-   * formula does not apply).
+   * The lowest resonance order of the supply path's reactances (per line and the neutral's) with the capacitors
+   * of the parts on, the estimate beside the scan: √(X_C/X_path) for a single loop or a balanced delta bank, the
+   * lowest eigen-order of that small LC network otherwise (capacitorPathReactance.ts; the classic √(S_sc/Q_c)
+   * with S_sc from |Z| assumes X ≫ R); null without a source reactance, without capacitors, or for a detuned
+   * bank (the estimate does not apply).
    */
   readonly formulaOrder: number | null;
   /** |Z| per pair, per scanned order, ohm, rounded to 1e-6 of the curve's largest value (plotting data). */

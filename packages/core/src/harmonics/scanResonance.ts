@@ -213,14 +213,13 @@ export function scanResonance(fundamental: NetworkSolution, model: HarmonicModel
     if (firstOf[c] !== c) values[c] = values[firstOf[c]!]!;
   });
   const ssc = shortCircuitVA(board);
-  // The estimate beside the scan: from the path's reactance as the parts on meet it, as the scan's peak sits (capacitorPathReactance.ts).
-  const sscXOf = (steps: readonly boolean[]) => (bank ? capacitorPathReactance(board, bankPartsOn(bank, steps).flatMap((l) => board.loads[l]!.branches))?.shortCircuitVA ?? null : null);
+  // The estimate beside the scan: the lowest order of the supply path's reactances with the parts on (capacitorPathReactance.ts).
+  const lowestOrderOf = (steps: readonly boolean[]) => (bank ? (capacitorPathReactance(board, bankPartsOn(bank, steps).flatMap((l) => board.loads[l]!.branches))?.resonanceOrders[0] ?? null) : null);
   const shared = new Map<number, Pick<ScanCombination, 'impedanceOhm' | 'peaks'>>();
   const combinations = combos.map((steps, c): ScanCombination => {
     const kvar = bank ? bankKvarOn(board, bank, steps) : 0;
     const label = combinationLabel(bank, steps);
-    const sscX = kvar > 0 && (bank?.detuning ?? 0) === 0 ? sscXOf(steps) : null;
-    const formulaOrder = sscX !== null ? Math.sqrt(sscX / (kvar * 1000)) : null;
+    const formulaOrder = kvar > 0 && (bank?.detuning ?? 0) === 0 ? lowestOrderOf(steps) : null;
     const same = shared.get(firstOf[c]!);
     if (same) return { steps, label, capacitorKvar: kvar, formulaOrder, impedanceOhm: same.impedanceOhm, peaks: same.peaks, nearOrders: ordersNear(same.peaks, options.checkedOrders) };
     const { curves, peaks } = refinedPeaks(evaluator, grid, values[c]!, (out) => evaluator.impedances(steps, out, 0));

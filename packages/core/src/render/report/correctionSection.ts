@@ -244,6 +244,11 @@ export function resonanceSection(report: CorrectionReport): ReportSection | null
   const band = CORRECTION_DEFAULTS.resonanceNearFraction;
   const sc = report.verification.voltageRise.shortCircuitKVA;
   const c = report.verification.resonanceCapacitance;
+  const top = Math.max(...watched) * (1 + band);
+  const others = report.verification.resonanceOrders.slice(1).filter((o) => o <= top);
+  // Where the harmonic check scanned the bank in the same study, its verdict decides, not the estimate.
+  const check = (report as { harmonics?: { summary: string; check: unknown } }).harmonics;
+  const scanned = check && check.check !== null ? check : null;
   return {
     id: 'harmonics',
     title: 'Harmonics and resonance',
@@ -254,11 +259,16 @@ export function resonanceSection(report: CorrectionReport): ReportSection | null
           ['Short-circuit power at the board', sc === null ? '—' : `${fixed(sc, 0)} kVA`],
           ['Capacitive output considered', capacitanceWords(report.verification.resonanceCapacitance)],
           ['Reactance of the supply path', c.supplyReactanceOhm === null ? '—' : `${pathReactanceWords(report)} (S_sc,X = ${fixed(c.reactanceShortCircuitKVA ?? 0, 0)} kVA)`],
-          [`Parallel resonance with the supply, h = ${c.reactorKvar > 0 ? '√((Ssc,X + QL)/Qc)' : '√(Xc/Xpath)'}`, `order ${fixed(h, 2)} (${fixed(f, 0)} Hz)`],
+          [
+            `Parallel resonance with the supply, h = ${c.lowestBelowSingleNode ? `the lowest order of the path’s reactances with the capacitances${c.unequalCurrents ? '' : ', the lines together against the neutral'}` : c.reactorKvar > 0 ? '√((Ssc,X + QL)/Qc)' : '√(Xc/Xpath)'}`,
+            `order ${fixed(h, 2)} (${fixed(f, 0)} Hz)${others.length ? `; also ${others.map((o) => fixed(o, 2)).join(', ')}` : ''}`,
+          ],
         ],
       },
       near.length
-        ? { kind: 'list', tone: 'warning', items: [`The resonance lies within ${fixed(100 * band, 0)} % of harmonic order ${near.join(', ')}, which common non-linear loads produce: a harmonic study and detuning reactors are strongly advised.`] }
+        ? scanned
+          ? { kind: 'list', tone: 'warning', items: [`The estimate lies within ${fixed(100 * band, 0)} % of harmonic order ${near.join(', ')}; the harmonic check of this report scanned the bank and decides: ${scanned.summary}.`] }
+          : { kind: 'list', tone: 'warning', items: [`The resonance lies within ${fixed(100 * band, 0)} % of harmonic order ${near.join(', ')}, which common non-linear loads produce: a harmonic study and detuning reactors are strongly advised.`] }
         : { kind: 'paragraph', text: `The resonance is not within ${fixed(100 * band, 0)} % of orders ${watched.join(', ')}. This is an estimate from the supply path's reactance only (its resistance damps the peak but hardly moves it; the classic √(Ssc/Qc) with Ssc from |Z| assumes X ≫ R); it does not replace a harmonic study of the board.` },
     ],
   };

@@ -150,7 +150,7 @@ export function scanBlocks(scan: ResonanceScan, place: ScanPlace): ReportBlock[]
     {
       kind: 'table',
       caption: `Resonance with the supply${place.seenFrom ?? ''}${scan.shortCircuitKVA === null ? '' : ` (short-circuit power ${fixed(scan.shortCircuitKVA, 0)} kVA)`}`,
-      columns: [{ label: 'Bank state' }, { label: 'kvar on', align: 'right' }, { label: '√(Xc/Xpath)', align: 'right' }, { label: 'Scanned peaks (h)' }, { label: 'Near orders' }],
+      columns: [{ label: 'Bank state' }, { label: 'kvar on', align: 'right' }, { label: 'Estimated h', align: 'right' }, { label: 'Scanned peaks (h)' }, { label: 'Near orders' }],
       rows: scan.combinations.map((c) => [
         c.label,
         fixed(c.capacitorKvar, 1),
