@@ -78,4 +78,38 @@ describe('the remedy for hours settled short', () => {
     expect(withIt[4]).toBeCloseTo(28.5 / Math.hypot(28.5, 15.675), 3);
     expect(10.125 - 13.5 * TAN_095).toBeCloseTo(5.688, 3);
   });
+
+  it('a cheese dairy stuck on two phases at once: a further step on each, together, rehearsed and then checked by adding them', () => {
+    const board = 'test/fixtures/profile/cheese-dairy-phase-steps.yaml';
+    const data = 'test/fixtures/profile/cheese-dairy-day.csv';
+    const text = runTrivar(['profile', board, '--data', data, '--bank']).stdout.replace(/\s+/g, ' ');
+    // Mixer at 0.5: 5 kW, 4.41 kvar, need 4.41 − 1.64 = 2.77; the 1 kvar step leaves 1.77 under the 8 kvar
+    // step's 5.36. Chiller at 0.6: 7.2 kW, 5.78 kvar, need 3.41; the 1.5 kvar step leaves 1.91 under 6.7.
+    expect(7.2 * Math.tan(Math.acos(0.78)) - 7.2 * TAN_095 - 1.5).toBeCloseTo(1.91, 2);
+    expect(text).toContain(
+      '4.00 h settled short of the target with the steps still open each too large for what is left: 1.77 to 4.18 kvar still needed, while a step closes only for a need above 0.67 × its kvar, 5.36 kvar for the smallest step still open (8.0 kvar) — further steps of 4.0 kvar (on phase A) and 4.2 kvar (on phase B) bring them all to the target (tried over the profile with the same controller: 2.00 h below the target in all with them, 6.00 h without)',
+    );
+    // Both added to the file: the 2 h left below are the light-load stretch under the small steps' thresholds.
+    const dir = mkdtempSync(join(tmpdir(), 'trivar-remedy-'));
+    const file = join(dir, 'dairy.yaml');
+    writeFileSync(
+      file,
+      readFileSync(board, 'utf8').replace(/steps: \[.*\]/, 'steps: [{ kvar: 1, phase: A }, { kvar: 4.0, phase: A }, { kvar: 8, phase: A }, { kvar: 1.5, phase: B }, { kvar: 4.2, phase: B }, { kvar: 10, phase: B }]'),
+    );
+    const withThem = runTrivar(['profile', file, '--data', data, '--bank', '--json']);
+    expect(withThem.stderr).toBe('');
+    expect(JSON.parse(withThem.stdout).bank.belowTarget).toMatchObject({ hours: 2, underResponseHours: 2, openStepsTooLargeHours: 0 });
+  });
+
+  it('a lower threshold, where one of at least 0.5 is offered, is rehearsed too: the drum light, then at 0.9', () => {
+    const text = runTrivar(['profile', 'test/fixtures/profile/tannery-drum.yaml', '--data', 'test/fixtures/profile/tannery-drum-light-then-heavy.csv', '--bank']).stdout.replace(/\s+/g, ' ');
+    // At 0.3 the 2 kvar step closes (need 2.53), 0.53 left. At 0.9: 7.59 − 2 = 5.59 kvar left, under 6.7; 5.59/10 =
+    // 0.559, so a threshold under 0.55 lets the 10 kvar step close (5.49 < 5.59). It over-corrects by 4.41, the
+    // 2 kvar step goes out (0.549 × 2 = 1.10 < 4.41) and 2.41 kvar of over-correction stays: Q 13.5 − 10 = 3.5 kvar,
+    // PF 18/√(18² + 3.5²) = 0.982, at the target in all 4 h.
+    expect(text).toContain(
+      '5.59 kvar still needed, while a step closes only for a need above 0.67 × its kvar, 6.70 kvar for the smallest step still open (10.0 kvar) — a further 5.6 kvar step brings them all to the target; a switching threshold under 0.55 × the step (profile.bank.responseShare; 0.5 at the least, lower and it hunts) brings them all to the target (tried over the profile with the same controller: 4.00 h below the target in all with it, 8.00 h without)',
+    );
+  });
 });
+

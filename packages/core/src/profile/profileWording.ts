@@ -255,8 +255,10 @@ function openStepsTooLargeWords(b: ProfileBankResult, hours: (h: number) => stri
     return facts + (step > 0 ? ` — a further step under ${step.toFixed(1)} kvar${place} would close for it${threshold}` : '');
   }
   const all = trial.settledShortHours;
-  const cures = (reached: number) => (reached >= all - 1e-9 ? 'brings them all to the target' : reached <= 1e-9 ? 'brings none of them to the target' : `brings ${hours(reached)} of the ${hours(all)} h to the target`);
   const further = trial.furtherSteps.map((s) => `${s.kvar.toFixed(1)} kvar${placeOf(s.channel)}`);
+  const bring = (one: boolean) => (one ? 'brings' : 'bring');
+  const cures = (reached: number, one = further.length === 1) =>
+    reached >= all - 1e-9 ? `${bring(one)} them all to the target` : reached <= 1e-9 ? `${bring(one)} none of them to the target` : `${bring(one)} ${hours(reached)} of the ${hours(all)} h to the target`;
   const steps = further.length === 1 ? `a further ${further[0]} step` : `further steps of ${further.join(' and ')}`;
   const tried = `none of the ${trial.triedKvar.count} further step sizes tried (${trial.triedKvar.least.toFixed(1)} to ${trial.triedKvar.most.toFixed(1)} kvar)`;
   const remedy =
@@ -268,7 +270,7 @@ function openStepsTooLargeWords(b: ProfileBankResult, hours: (h: number) => stri
   // What the step does to the whole record: it changes which step closes first in other hours too.
   const inAll = trial.reachedHours > 1e-9 ? `: ${trial.hoursBelowWith <= 1e-9 ? 'no hour' : `${hours(trial.hoursBelowWith)} h`} below the target in all with ${further.length === 1 ? 'it' : 'them'}, ${hours(b.belowTarget.hours)} h without` : '';
   const threshold = trial.lowerShare
-    ? `; a switching threshold under ${trial.lowerShare.share.toFixed(2)} × the step (${setting}; ${MIN_RESPONSE_SHARE} at the least, lower and it hunts) ${cures(trial.lowerShare.reachedHours)}`
+    ? `; a switching threshold under ${trial.lowerShare.share.toFixed(2)} × the step (${setting}; ${MIN_RESPONSE_SHARE} at the least, lower and it hunts) ${cures(trial.lowerShare.reachedHours, true)}`
     : '';
   return `${facts} — ${remedy}${threshold} (tried over the profile with the same controller${inAll})`;
 }

@@ -7,7 +7,8 @@
  */
 import type { StepChannel, SwitchedStep, SwitchingSettings } from './bankController.js';
 import type { SettledShortInterval } from './belowTargetHours.js';
-import type { BankRun } from './simulateBank.js';
+import { channelReadingAt, phaseIndexOf, type BankRun } from './simulateBank.js';
+import type { PhaseId } from '../board/boardModel.js';
 import type { IntervalFigures } from './solveBatch.js';
 import { MIN_RESPONSE_SHARE } from './profileDefaults.js';
 
@@ -38,6 +39,8 @@ export interface SettledShortTrialInput {
   readonly intervalMs: number;
   /** The intervals in the record: a long one is given fewer trial runs. */
   readonly intervals: number;
+  /** The bank's board's phases, in the figures' order (a channel's reading is read off them). */
+  readonly phases: readonly PhaseId[];
   readonly rowHours: Float64Array | null;
 }
 
@@ -89,21 +92,43 @@ export function trySettledShort(input: SettledShortTrialInput): SettledShortTria
     return w > 0 && q > w * tanTarget;
   };
   const settledShortHours = settledShort.reduce((a, s) => a + hoursOf(s.index), 0);
-  const judge = (run: BankRun) => {
+  const phaseIndex = phaseIndexOf(input.phases);
+  /** The hours of the settled-short intervals at the target (board-wide where the controller measures), the hours
+   *  where `channel` reads its own target, and the hours below the target in all. */
+  const judge = (run: BankRun, channel: StepChannel | null) => {
     const f = run.meterFigures ?? run.figures;
     let reached = 0;
-    for (const s of settledShort) if (!below(f, s.index)) reached += hoursOf(s.index);
+    let channelReached = 0;
+    for (const s of settledShort) {
+      if (!below(f, s.index)) reached += hoursOf(s.index);
+      if (channel !== null && s.needKvar.has(channel)) {
+        const r = channelReadingAt(f, phaseIndex, channel, s.index);
+        if (r.var <= Math.max(r.w, 0) * tanTarget) channelReached += hoursOf(s.index);
+      }
+    }
     let belowAll = 0;
     for (let i = 0; i < f.count; i++) if (below(f, i)) belowAll += hoursOf(i);
-    return { reached, belowAll };
+    return { reached, channelReached, belowAll };
   };
-  type Tried = { readonly furtherSteps: { channel: StepChannel; kvar: number }[]; readonly reached: number; readonly belowAll: number };
-  const tryWith = (further: { channel: StepChannel; kvar: number }[]): Tried => ({ furtherSteps: further, ...judge(input.simulate([...steps, ...further], fixed, settings)) });
+  type Tried = { readonly furtherSteps: { channel: StepChannel; kvar: number }[]; readonly reached: number; readonly channelReached: number; readonly belowAll: number };
+  const tryWith = (further: { channel: StepChannel; kvar: number }[], channel: StepChannel | null): Tried => ({
+    furtherSteps: further,
+    ...judge(input.simulate([...steps, ...further], fixed, settings), channel),
+  });
+  const same = (a: number, b: number) => Math.abs(a - b) <= 1e-9;
+  // A channel's own hours at its target first: where several channels are stuck in one interval, no step on
+  // one of them brings the board there alone, and the board's count cannot tell the sizes apart.
   const better = (a: Tried, b: Tried | null) =>
     !b ||
-    a.reached > b.reached + 1e-9 ||
-    (Math.abs(a.reached - b.reached) <= 1e-9 && (a.belowAll < b.belowAll - 1e-9 || (Math.abs(a.belowAll - b.belowAll) <= 1e-9 && total(a) < total(b))));
+    (!same(a.channelReached, b.channelReached)
+      ? a.channelReached > b.channelReached
+      : !same(a.reached, b.reached)
+        ? a.reached > b.reached
+        : !same(a.belowAll, b.belowAll)
+          ? a.belowAll < b.belowAll
+          : total(a) < total(b));
   const total = (t: Tried) => t.furtherSteps.reduce((a, s) => a + s.kvar, 0);
+  const boardWide = (a: Tried, b: Tried | null) => better({ ...a, channelReached: 0 }, b && { ...b, channelReached: 0 });
 
   const needs = new Map<StepChannel, number[]>();
   for (const s of settledShort) for (const [c, need] of s.needKvar) needs.set(c, [...(needs.get(c) ?? []), need]);
@@ -119,21 +144,21 @@ export function trySettledShort(input: SettledShortTrialInput): SettledShortTria
       sizesTried++;
       least = Math.min(least, kvar);
       most = Math.max(most, kvar);
-      const t = tryWith([{ channel: c, kvar }]);
+      const t = tryWith([{ channel: c, kvar }], c);
       if (better(t, bestOf.get(c) ?? null)) bestOf.set(c, t);
     }
-    if (bestOf.has(c) && better(bestOf.get(c)!, best)) best = bestOf.get(c)!;
+    if (bestOf.has(c) && boardWide(bestOf.get(c)!, best)) best = bestOf.get(c)!;
   }
   // Stuck on several channels: each channel's best together, where one alone leaves hours short.
   if (channels.length > 1 && best && best.reached < settledShortHours - 1e-9) {
-    const together = tryWith([...bestOf.values()].map((t) => t.furtherSteps[0]!));
-    if (better(together, best)) best = together;
+    const together = tryWith([...bestOf.values()].map((t) => t.furtherSteps[0]!), null);
+    if (boardWide(together, best)) best = together;
   }
   if (!best) return null;
   const share = floorTo(input.closingShare, 2);
   const lowerShare =
     share >= MIN_RESPONSE_SHARE && share < settings.responseShare
-      ? { share, reachedHours: judge(input.simulate(steps, fixed, { ...settings, responseShare: share - 0.001 })).reached }
+      ? { share, reachedHours: judge(input.simulate(steps, fixed, { ...settings, responseShare: share - 0.001 }), null).reached }
       : null;
   return { settledShortHours, furtherSteps: best.furtherSteps, reachedHours: best.reached, hoursBelowWith: best.belowAll, triedKvar: { least, most, count: sizesTried }, lowerShare };
 }
