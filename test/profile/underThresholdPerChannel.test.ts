@@ -41,7 +41,7 @@ describe('under the switching threshold, per channel', () => {
     const bank = JSON.parse(r.stdout).bank as ProfileBankResult;
     expect(bank.belowTarget).toMatchObject({ hours: 4, underResponseHours: 4, underResponseChannels: [{ channel: 'A', smallestKvar: 1 }, { channel: 'B', smallestKvar: 5 }] });
     expect(belowTargetWords(bank)).toBe(
-      "board PF below 0.95 with the bank: 4.00 h of import — 4.00 h with the shortfall under each channel's own switching threshold (on phase A 0.67 × 1.0 kvar = 0.67 kvar, on phase B 0.67 × 5.0 kvar = 3.35 kvar: no step closes for it)",
+      "board PF below 0.95 with the bank: 4.00 h of import — 4.00 h with the shortfall under each channel's own switching threshold (0.67 × 1.0 kvar = 0.67 kvar on phase A, 0.67 × 5.0 kvar = 3.35 kvar on phase B: no step closes for it)",
     );
   });
 
@@ -70,4 +70,30 @@ describe('under the switching threshold, per channel', () => {
       '1.00 h with the shortfall on the whole board under the switching threshold there (0.67 × 5.0 kvar = 3.35 kvar: no step closes for it)',
     );
   });
+
+  it('a split-phase board: each line-to-neutral step named the board\'s way, never "phase" or "three-phase"', () => {
+    // Invented: a creek cabin, a 1.5 kW fan at PF 0.93 on one line (0.10 kvar short, under 0.67) and a 3 kW pump
+    // at PF 0.8 at half load on the other (1.5 kW, 1.125 − 0.493 = 0.63 kvar short, under 3.35).
+    const dir = mkdtempSync(join(tmpdir(), 'trivar-per-channel-'));
+    const board = join(dir, 'creek-cabin.yaml');
+    writeFileSync(
+      board,
+      [
+        'name: Creek cabin',
+        'supply: { system: split-phase, voltage: { lineToNeutral: 120 }, frequencyHz: 60 }',
+        'loads:',
+        '  - { name: Fan, connection: A-N, kW: 1.5, pf: 0.93 }',
+        '  - { name: Pump, connection: B-N, kW: 3, pf: 0.8 }',
+        'profile: { bank: { steps: [{ kvar: 1, phase: A }, { kvar: 5, phase: B }] } }',
+        '',
+      ].join('\n'),
+    );
+    const data = join(dir, 'cabin.csv');
+    writeFileSync(data, 'time,Fan [x],Pump [x]\n2026-05-11T06:00,1,0.5\n2026-05-11T06:30,1,0.5\n');
+    const text = runTrivar(['profile', board, '--data', data, '--bank']).stdout.replace(/\s+/g, ' ');
+    expect(text).toContain(
+      "1.00 h with the shortfall under each channel's own switching threshold (0.67 × 1.0 kvar = 0.67 kvar line-to-neutral on A, 0.67 × 5.0 kvar = 3.35 kvar line-to-neutral on B: no step closes for it)",
+    );
+  });
 });
+

@@ -296,7 +296,7 @@ function underResponseWords(b: ProfileBankResult, hours: string): string {
   const sizes = new Set(channels.map((c) => c.smallestKvar));
   if (sizes.size === 1)
     return `${hours} h with the shortfall ${channels.map((c) => placeOf(c.channel)).join(' and ')} under the switching threshold there (${threshold(channels[0]!.smallestKvar)}${channels.length > 1 ? ' each' : ''}: no step closes for it)`;
-  return `${hours} h with the shortfall under each channel's own switching threshold (${channels.map((c) => `${placeOf(c.channel)} ${threshold(c.smallestKvar)}`).join(', ')}: no step closes for it)`;
+  return `${hours} h with the shortfall under each channel's own switching threshold (${channels.map((c) => `${threshold(c.smallestKvar)} ${placeOf(c.channel)}`).join(', ')}: no step closes for it)`;
 }
 
 /**
