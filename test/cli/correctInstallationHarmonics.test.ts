@@ -32,7 +32,7 @@ describe('trivar correct on an installation file with harmonic data', () => {
     expect(r.stdout).toContain('Harmonic check: plain and detuned banks');
     const words = r.stdout.replace(/\s+/g, ' ');
     expect(words).not.toContain('does not check harmonics');
-    expect(words).toContain('The harmonic check below covers the spectra entered in the installation file');
+    expect(words).toContain('The harmonic check of this correction covers the spectra entered in the installation file');
     for (const v of h.variants) {
       const row = r.stdout.split('\n').find((l) => l.trimStart().startsWith(`${v.name}${v.name === h.chosen ? ' *' : ''} `))!;
       expect(row, v.name).toBeDefined();

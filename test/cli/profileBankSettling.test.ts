@@ -66,6 +66,7 @@ describe('an automatic bank on interval data coarser than its delay', () => {
       hours: expect.closeTo(4 / 60, 9),
       allStepsInHours: 0,
       underResponseHours: 0,
+      underResponseChannels: [],
       stepTooCoarseHours: 0,
       openStepsTooLargeHours: 0,
       onTheWayHours: expect.closeTo(4 / 60, 9),

@@ -92,3 +92,18 @@ describe('trivar report, one arrangement on a board with harmonic data', () => {
     expect(md).toMatch(/Harmonic check: the plain bank fails the harmonic check .*chosen: detuned/);
   });
 });
+
+describe('the caution that points at the harmonic check', () => {
+  it('names the check where it stands in the report and in correct: "of this correction", never "below" it', () => {
+    // In the report the harmonics section comes before the cautions; in `trivar correct` after them. The
+    // caution must read true in both.
+    const md = reportMd(join(ROOT, 'test/fixtures/supply-loop/borehole-hut-single-harmonics.yaml'));
+    const words = md.replace(/\s+/g, ' ');
+    expect(words).toContain('The harmonic check of this correction covers the spectra entered in the board file');
+    expect(words).not.toContain('harmonic check below');
+    expect(md.indexOf('## Harmonics and resonance')).toBeGreaterThan(0);
+    expect(md.indexOf('## Harmonics and resonance')).toBeLessThan(md.indexOf('The harmonic check of this correction'));
+    const text = runTrivar(['correct', 'test/fixtures/supply-loop/borehole-hut-single-harmonics.yaml']).stdout.replace(/\s+/g, ' ');
+    expect(text).toContain('The harmonic check of this correction covers the spectra entered in the board file');
+  });
+});

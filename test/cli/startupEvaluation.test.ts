@@ -19,7 +19,7 @@ const ZOD = '__zod_globalRegistry'; // zod's registry, made when zod's core is e
 const BOARD_SCHEMA = 'the circuits on the board'; // boardSchema.ts, when the board-file schema is built
 const CORRECTION_SCHEMA = 'lowest acceptable power factor, 0 < pf <= 1; default 0.95'; // correctionSpec.ts
 const YAML = 'tag:yaml.org,2002:map'; // yaml's core schema
-const HARMONIC_CORRECTION = 'The harmonic check below covers the spectra entered in the '; // correctWithHarmonics.ts (harmonicsChecked)
+const HARMONIC_CORRECTION = 'The harmonic check of this correction covers the spectra entered in the '; // correctWithHarmonics.ts (harmonicsChecked)
 
 interface Range {
   readonly startOffset: number;

@@ -145,6 +145,7 @@ describe('hours below the target with a banded bank', () => {
       hours: 0.5,
       allStepsInHours: 0,
       underResponseHours: 0,
+      underResponseChannels: [],
       stepTooCoarseHours: 0.25,
       openStepsTooLargeHours: 0,
       onTheWayHours: 0.25,
@@ -163,6 +164,8 @@ describe('hours below the target with a banded bank', () => {
       hours: 0.75,
       allStepsInHours: 0.25,
       underResponseHours: 0.25,
+      // The board's channel, short by 2.48 kvar, under its own 0.67 × 10 kvar threshold.
+      underResponseChannels: [{ channel: 'ABC', smallestKvar: 10 }],
       stepTooCoarseHours: 0,
       openStepsTooLargeHours: 0,
       onTheWayHours: 0.25,

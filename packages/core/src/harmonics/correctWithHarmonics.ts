@@ -140,7 +140,7 @@ const equivalentUnit = (u: CapacitorUnitSpec, p: number): CapacitorUnitSpec => (
 /** The caution a correction report gives when it has not looked at harmonics; replaced once it has. */
 const HARMONICS_NOT_CHECKED = CORRECTION_CAUTIONS.find((c) => c.includes('does not check harmonics'));
 const harmonicsChecked = (file: string) =>
-  `Adding capacitance moves the supply resonance down in frequency. The harmonic check below covers the spectra entered in the ${file}; measure the real spectrum (true-rms, per order) before installing.`;
+  `Adding capacitance moves the supply resonance down in frequency. The harmonic check of this correction covers the spectra entered in the ${file}; measure the real spectrum (true-rms, per order) before installing.`;
 
 /**
  * Writes a variant's steps back in real units: rating, nameplate and

@@ -15,7 +15,8 @@ import { sizeBankSteps } from './sizeBankSteps.js';
 import type { IntervalFigures } from './solveBatch.js';
 import type { ProfileSummary } from './summariseFigures.js';
 import type { ProfileBankResult, ProfileStudyOptions } from './studyProfile.js';
-import { hoursBelowTarget } from './belowTargetHours.js';
+import { belowTargetStates } from './belowTargetHours.js';
+import { trySettledShort } from './settledShortTrial.js';
 import { judgedNominalOf } from '../board/nominalVoltages.js';
 import { InputError, inputIssue, type InputIssue } from '../errors.js';
 import { conventionsOf } from '../board/conventions/boardConventions.js';
@@ -165,13 +166,16 @@ export function bankOverProfile(input: BankOverProfileInput, options: Pick<Profi
     const everConnected = run.connectedKvar.some((k) => k > 0) || fixed.length > 0;
     const { upperPf, ...rest } = settings;
     const totalKvar = steps.reduce((s, x) => s + x.kvar, 0);
-    const belowTarget = hoursBelowTarget(
+    const { belowTarget, settledShort } = belowTargetStates(
       run.meterFigures ?? run.figures,
       { targetPf: settings.targetPf, upperPf: upperPf ?? null, responseShare: settings.responseShare },
       { steps, stepOn: run.stepOn, phases: board.phases },
       input.intervalMs,
       input.rowHours ?? null,
     );
+    const settledShortTrial = belowTarget.openStepsTooLarge
+      ? trySettledShort({ steps, fixed, settings, settledShort, closingShare: belowTarget.openStepsTooLarge.closingShare, simulate: input.simulate, intervalMs: input.intervalMs, intervals: n, phases: board.phases, rowHours: input.rowHours ?? null })
+      : null;
     const bank: ProfileBankResult = {
       source,
       design: designed?.design ?? null,
@@ -208,6 +212,7 @@ export function bankOverProfile(input: BankOverProfileInput, options: Pick<Profi
       voltageRiseWords: riseShown ? null : noVoltageRiseWords(everConnected),
       measuredAt: input.meterPoint ?? null,
       belowTarget,
+      settledShortTrial,
       targetOutOfReach,
       after: input.summarise(run.figures),
     };

@@ -21,6 +21,11 @@ export interface BelowTarget {
   readonly allStepsInHours: number;
   /** The shortfall under the controller's response threshold (responseShare × the channel's smallest step): no step closes for it. */
   readonly underResponseHours: number;
+  /**
+   * The channels short of the target but under their own threshold in those hours, in the steps' order, with
+   * their smallest step (the threshold is responseShare × it): the words quote each channel's own.
+   */
+  readonly underResponseChannels: readonly { readonly channel: StepChannel; readonly smallestKvar: number }[];
   /** With an upper limit: every step still open would carry the PF past it (steps too coarse for the band at that load). */
   readonly stepTooCoarseHours: number;
   /**
@@ -61,6 +66,23 @@ export function hoursBelowTarget(
   intervalMs: number,
   rowHours: Float64Array | null = null,
 ): BelowTarget {
+  return belowTargetStates(f, settings, bank, intervalMs, rowHours).belowTarget;
+}
+
+/** An interval settled short with its open steps each too large, and the kvar left on each channel stuck there. */
+export interface SettledShortInterval {
+  readonly index: number;
+  readonly needKvar: ReadonlyMap<StepChannel, number>;
+}
+
+/** hoursBelowTarget, with the intervals settled short (openStepsTooLarge) listed for a trial of what would cure them. */
+export function belowTargetStates(
+  f: IntervalFigures,
+  settings: { readonly targetPf: number; readonly upperPf: number | null; readonly responseShare: number },
+  bank: { readonly steps: readonly SwitchedStep[]; readonly stepOn: readonly Uint8Array[]; readonly phases: readonly PhaseId[] },
+  intervalMs: number,
+  rowHours: Float64Array | null = null,
+): { readonly belowTarget: BelowTarget; readonly settledShort: readonly SettledShortInterval[] } {
   const tanTarget = Math.tan(Math.acos(settings.targetPf));
   const rule = channelRule({ targetPf: settings.targetPf, responseShare: settings.responseShare, delaySeconds: 0, reconnectSeconds: 0, ...(settings.upperPf === null ? {} : { upperPf: settings.upperPf }) });
   const { steps, stepOn } = bank;
@@ -77,6 +99,8 @@ export function hoursBelowTarget(
   let coarse = 0;
   let tooLarge = 0;
   let onTheWay = 0;
+  const underChannels = new Set<StepChannel>();
+  const settledShort: SettledShortInterval[] = [];
   let remedy: { channels: Set<StepChannel>; least: number; most: number; smallestOpen: number; share: number; step: number } | null = null;
   for (let i = 0; i < f.count; i++) {
     let w = 0;
@@ -96,6 +120,7 @@ export function hoursBelowTarget(
     let full = false;
     let pastBand = false;
     const stuck: { channel: StepChannel; need: number; smallestOpen: number; step: number }[] = [];
+    const short: StepChannel[] = [];
     for (const c of channels) {
       const g = rule.gauge(channelReadingAt(f, phaseIndex, c.channel, i), c.smallestKvar);
       const open = c.members.filter((k) => stepOn[k]![i] !== 1);
@@ -104,6 +129,7 @@ export function hoursBelowTarget(
         if (g.wants === 'out' && c.members.some((k) => stepOn[k]![i] === 1 && rule.mayOpen(steps[k]!.kvar, g))) moving = true;
         continue;
       }
+      if (g.wants !== 'in') short.push(c.channel);
       if (!open.length) full = true;
       else if (g.wants === 'in' && open.some((k) => rule.mayClose(steps[k]!.kvar, g))) moving = true;
       else if (rule.banded && open.every((k) => steps[k]!.kvar * 1000 > g.room)) pastBand = true;
@@ -119,6 +145,7 @@ export function hoursBelowTarget(
     else if (pastBand) coarse += each;
     else if (stuck.length) {
       tooLarge += each;
+      settledShort.push({ index: i, needKvar: new Map(stuck.map((s) => [s.channel, s.need])) });
       for (const s of stuck) {
         const share = s.need / s.smallestOpen;
         if (!remedy) remedy = { channels: new Set([s.channel]), least: s.need, most: s.need, smallestOpen: s.smallestOpen, share, step: s.step };
@@ -131,12 +158,16 @@ export function hoursBelowTarget(
           remedy.step = Math.min(remedy.step, s.step);
         }
       }
-    } else under += each;
+    } else {
+      under += each;
+      for (const c of short) underChannels.add(c);
+    }
   }
-  return {
+  const belowTarget: BelowTarget = {
     hours: below * h,
     allStepsInHours: allIn * h,
     underResponseHours: under * h,
+    underResponseChannels: channels.filter((c) => underChannels.has(c.channel)).map((c) => ({ channel: c.channel, smallestKvar: c.smallestKvar })),
     stepTooCoarseHours: coarse * h,
     openStepsTooLargeHours: tooLarge * h,
     onTheWayHours: onTheWay * h,
@@ -151,4 +182,5 @@ export function hoursBelowTarget(
         }
       : null,
   };
+  return { belowTarget, settledShort };
 }

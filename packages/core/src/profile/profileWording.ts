@@ -228,27 +228,75 @@ const floorTo = (x: number, decimals: number) => Math.floor(x * 10 ** decimals +
 
 /**
  * The hours the controller held a state short of the target with steps still open, each too large for what
- * was left, and what would let one close there in every such interval (BelowTarget.openStepsTooLarge): a further
- * step under closingStepKvar, or a threshold share under closingShare where that is not below the lowest share a
- * controller can be set to without hunting (MIN_RESPONSE_SHARE).
+ * was left (BelowTarget.openStepsTooLarge), and what would cure them: the further step (one per channel
+ * stuck) and the lower threshold rehearsed over the profile by the same controller (settledShortTrial.ts),
+ * with the hours each brings to the target. A step that merely closes there is no cure: the need left after
+ * it may still sit under every open step's threshold. A result without the trial says only what would close.
  */
-function openStepsTooLargeWords(b: ProfileBankResult, hours: string): string {
+function openStepsTooLargeWords(b: ProfileBankResult, hours: (h: number) => string, settledHours: number): string {
   const share = b.settings.responseShare;
   const r = b.belowTarget.openStepsTooLarge;
-  const head = `${hours} h settled short of the target with the steps still open each too large for what is left`;
+  const head = `${hours(settledHours)} h settled short of the target with the steps still open each too large for what is left`;
   if (!r) return head;
   const left = Math.abs(r.mostNeedKvar - r.leastNeedKvar) < 0.005 ? `${r.leastNeedKvar.toFixed(2)} kvar` : `${r.leastNeedKvar.toFixed(2)} to ${r.mostNeedKvar.toFixed(2)} kvar`;
-  const place = r.channel !== null && b.steps.some((s) => s.channel !== r.channel) ? ` (${b.placeWords[r.channel] ?? r.channel})` : '';
-  const step = floorTo(r.closingStepKvar, 1);
-  const lowerShare = floorTo(r.closingShare, 2);
+  const mixed = b.steps.some((s) => s.channel !== b.steps[0]!.channel);
+  const placeOf = (channel: string) => (mixed ? ` (${b.placeWords[channel] ?? channel})` : '');
+  const place = r.channel !== null ? placeOf(r.channel) : '';
   const setting = b.source === 'correction-study' ? "the controller's C/k setting" : 'profile.bank.responseShare';
-  const threshold =
-    lowerShare >= MIN_RESPONSE_SHARE && lowerShare < share ? `, or a switching threshold under ${lowerShare.toFixed(2)} × the step (${setting}; ${MIN_RESPONSE_SHARE} at the least, lower and it hunts)` : '';
-  return (
+  const facts =
     `${head}: ${left} still needed${place}, while a step closes only for a need above ${share.toFixed(2)} × its kvar, ` +
-    `${(share * r.smallestOpenKvar).toFixed(2)} kvar for the smallest step still open (${r.smallestOpenKvar.toFixed(1)} kvar)` +
-    (step > 0 ? ` — a further step under ${step.toFixed(1)} kvar${place} would close for it${threshold}` : '')
-  );
+    `${(share * r.smallestOpenKvar).toFixed(2)} kvar for the smallest step still open (${r.smallestOpenKvar.toFixed(1)} kvar)`;
+  const trial = b.settledShortTrial;
+  if (!trial) {
+    const step = floorTo(r.closingStepKvar, 1);
+    const lowerShare = floorTo(r.closingShare, 2);
+    const threshold =
+      lowerShare >= MIN_RESPONSE_SHARE && lowerShare < share ? `, or a switching threshold under ${lowerShare.toFixed(2)} × the step (${setting}; ${MIN_RESPONSE_SHARE} at the least, lower and it hunts)` : '';
+    return facts + (step > 0 ? ` — a further step under ${step.toFixed(1)} kvar${place} would close for it${threshold}` : '');
+  }
+  const all = trial.settledShortHours;
+  const further = trial.furtherSteps.map((s) => `${s.kvar.toFixed(1)} kvar${placeOf(s.channel)}`);
+  const bring = (one: boolean) => (one ? 'brings' : 'bring');
+  const cures = (reached: number, one = further.length === 1) =>
+    reached >= all - 1e-9 ? `${bring(one)} them all to the target` : reached <= 1e-9 ? `${bring(one)} none of them to the target` : `${bring(one)} ${hours(reached)} of the ${hours(all)} h to the target`;
+  const steps = further.length === 1 ? `a further ${further[0]} step` : `further steps of ${further.join(' and ')}`;
+  const tried = `none of the ${trial.triedKvar.count} further step sizes tried (${trial.triedKvar.least.toFixed(1)} to ${trial.triedKvar.most.toFixed(1)} kvar)`;
+  const remedy =
+    trial.reachedHours >= all - 1e-9
+      ? `${steps} ${cures(trial.reachedHours)}`
+      : trial.reachedHours <= 1e-9
+        ? `${tried} brings any of them to the target`
+        : `${tried} brings them all to the target; ${steps} ${cures(trial.reachedHours)}`;
+  // What the step does to the whole record: it changes which step closes first in other hours too.
+  const inAll = trial.reachedHours > 1e-9 ? `: ${trial.hoursBelowWith <= 1e-9 ? 'no hour' : `${hours(trial.hoursBelowWith)} h`} below the target in all with ${further.length === 1 ? 'it' : 'them'}, ${hours(b.belowTarget.hours)} h without` : '';
+  const threshold = trial.lowerShare
+    ? `; a switching threshold under ${trial.lowerShare.share.toFixed(2)} × the step (${setting}; ${MIN_RESPONSE_SHARE} at the least, lower and it hunts) ${cures(trial.lowerShare.reachedHours, true)}`
+    : '';
+  return `${facts} — ${remedy}${threshold} (tried over the profile with the same controller${inAll})`;
+}
+
+/**
+ * The hours with the shortfall under the switching threshold, quoting each channel's own: the controller
+ * judges a channel (the board for three-phase steps, a phase or a line pair for the others) against
+ * responseShare × that channel's smallest step, so one channel's threshold never explains another's hours.
+ */
+function underResponseWords(b: ProfileBankResult, hours: string): string {
+  const share = b.settings.responseShare;
+  const t = b.belowTarget;
+  const kvar = (x: number) => `${x.toFixed(1)} kvar`;
+  const threshold = (smallest: number) => `${share.toFixed(2)} × ${kvar(smallest)} = ${(share * smallest).toFixed(2)} kvar`;
+  // A result without the channels (written before they were kept): the bank's smallest step, right where every step answers to one reading.
+  if (t.underResponseChannels === undefined) return `${hours} h with the shortfall under the switching threshold (${threshold(Math.min(...b.steps.map((s) => s.kvar)))}: no step closes for it)`;
+  const channels = t.underResponseChannels;
+  if (!channels.length) return `${hours} h short of the target on lines no step answers to (every step's own reading at or above the target)`;
+  // Three-phase steps alone: the board's threshold, as it always read.
+  if (channels.length === 1 && channels[0]!.channel === 'ABC' && b.steps.every((s) => s.channel === 'ABC'))
+    return `${hours} h with the shortfall under the switching threshold (${threshold(channels[0]!.smallestKvar)}: no step closes for it)`;
+  const placeOf = (channel: StepChannel) => (channel === 'ABC' ? 'on the whole board' : (b.placeWords[channel] ?? channel));
+  const sizes = new Set(channels.map((c) => c.smallestKvar));
+  if (sizes.size === 1)
+    return `${hours} h with the shortfall ${channels.map((c) => placeOf(c.channel)).join(' and ')} under the switching threshold there (${threshold(channels[0]!.smallestKvar)}${channels.length > 1 ? ' each' : ''}: no step closes for it)`;
+  return `${hours} h with the shortfall under each channel's own switching threshold (${channels.map((c) => `${threshold(c.smallestKvar)} ${placeOf(c.channel)}`).join(', ')}: no step closes for it)`;
 }
 
 /**
@@ -264,16 +312,13 @@ export function belowTargetWords(b: ProfileBankResult): string | null {
   const hours = (h: number) => (h < 10 ? h.toFixed(2) : h.toFixed(1));
   // Three decimals where a band edge needs them (0.995 must not read as 0.99).
   const pf = (x: number) => x.toFixed(Math.round(x * 100) === x * 100 ? 2 : 3);
-  const smallest = Math.min(...b.steps.map((s) => s.kvar));
   // With single-phase or line-pair steps each channel answers to its own reading, and is judged on it.
   const ownReadings = b.steps.some((s) => s.channel !== 'ABC');
   const why = [
     ...(t.allStepsInHours > 0 ? [`${hours(t.allStepsInHours)} h with every step in${ownReadings ? ' where it falls short' : ''} (the bank too small for that load)`] : []),
-    ...(t.underResponseHours > 0
-      ? [`${hours(t.underResponseHours)} h with the shortfall${ownReadings ? ' on each phase the steps answer to' : ''} under the switching threshold (${set.responseShare.toFixed(2)} × ${smallest.toFixed(1)} kvar = ${(set.responseShare * smallest).toFixed(2)} kvar: no step closes for it)`]
-      : []),
+    ...(t.underResponseHours > 0 ? [underResponseWords(b, hours(t.underResponseHours))] : []),
     ...(t.stepTooCoarseHours > 0 ? [`${hours(t.stepTooCoarseHours)} h with no step small enough to stay under ${pf(set.upperPf!)} (steps coarse for this band at that load)`] : []),
-    ...(t.openStepsTooLargeHours > 0 ? [openStepsTooLargeWords(b, hours(t.openStepsTooLargeHours))] : []),
+    ...(t.openStepsTooLargeHours > 0 ? [openStepsTooLargeWords(b, hours, t.openStepsTooLargeHours)] : []),
     ...(t.onTheWayHours > 0 ? [`${hours(t.onTheWayHours)} h with the controller on its way (switching delay, a step waiting out its discharge)`] : []),
   ];
   // Worked where the controller measures: the bank's board, or upstream of it (profile.bank.measuredAt).

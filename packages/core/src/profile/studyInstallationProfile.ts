@@ -24,7 +24,7 @@ import { boardNamesOf } from './installationColumns.js';
 import { allocateBoardFigures, compileInstallationBatch, createInstallationKernel, solveInstallationBatch } from './installationBatch.js';
 import { edgePowersAt } from './batchNetwork.js';
 import type { ProfileSpec } from './profileSpec.js';
-import { switchBank } from './simulateBank.js';
+import { switchBank, type BankRun } from './simulateBank.js';
 import { recordInterval, type IntervalFigures } from './solveBatch.js';
 import { profileClock, resolveLimits, type ProfileBankResult, type ProfileStudyOptions } from './studyProfile.js';
 import { summariseFigures, type ProfileSummary, type ResolvedLimits, type SummaryContext } from './summariseFigures.js';
@@ -187,6 +187,9 @@ export function studyInstallationProfile(input: InstallationProfileInput, option
   let meterAfter: IntervalFigures | null = null;
 
   let after: IntervalFigures[] | null = null;
+  // Every board's figures of each run: the bank's own run is read back after the study, which also runs
+  // trials (settledShortTrial.ts) whose figures are not the bank's.
+  const boardsOfRun = new WeakMap<BankRun, { readonly after: IntervalFigures[]; readonly meterAfter: IntervalFigures | null }>();
   const outcome = bankOverProfile(
     {
       board: boards[bankAt]!,
@@ -200,10 +203,9 @@ export function studyInstallationProfile(input: InstallationProfileInput, option
       summarise: (f) => summariseFigures(f, contexts[bankAt]!),
       simulate: (steps, fixed, settings) => {
         const figures = allocateBoardFigures(frame, n);
-        after = figures.slice(shift);
-        meterAfter = meter ? figures[meter.index]! : null;
+        const meterOfRun = meter ? figures[meter.index]! : null;
         const at = bankAt + shift;
-        const run = { board: boards[bankAt]!, figures: figures[at]!, ...(meterAfter ? { meter: meterAfter } : {}), utcMs: input.utcMs, intervalMs: input.intervalMs, steps, fixed, settings };
+        const run = { board: boards[bankAt]!, figures: figures[at]!, ...(meterOfRun ? { meter: meterOfRun } : {}), utcMs: input.utcMs, intervalMs: input.intervalMs, steps, fixed, settings };
         const switched = switchBank(run, (extra) => {
           const withSteps = compileInstallationBatch(frame, input.loads, frameBoards, input.drivers, extra.map((e) => ({ ...e, board: at })));
           const kernel = createInstallationKernel(withSteps);
@@ -220,12 +222,14 @@ export function studyInstallationProfile(input: InstallationProfileInput, option
           };
         });
         clearRoundOff(figures, frameFloorA, nominalV);
+        boardsOfRun.set(switched, { after: figures.slice(shift), meterAfter: meterOfRun });
         return switched;
       },
     },
     options,
   );
   const withBank = outcome && 'bank' in outcome ? outcome : null;
+  if (withBank) ({ after, meterAfter } = boardsOfRun.get(withBank.run)!);
   const afterFigures = withBank ? after : null;
   const boardResults = boards.map((board, b): InstallationProfileBoard => ({
     board: board.name,

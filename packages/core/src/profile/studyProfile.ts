@@ -15,6 +15,7 @@ import type { SequenceReport } from './checkIntervalSequence.js';
 import type { ProfileSpec } from './profileSpec.js';
 import { simulateBank } from './simulateBank.js';
 import type { BelowTarget } from './belowTargetHours.js';
+import type { SettledShortTrial } from './settledShortTrial.js';
 import { clearRoundOff, conductorFloorA } from './intervalRoundOff.js';
 import { bankOverProfile } from './bankOverProfile.js';
 import { allocateFigures, solveBatch, type BatchSolveOptions, type IntervalFigures } from './solveBatch.js';
@@ -140,6 +141,12 @@ export interface ProfileBankResult {
    * every importing interval.
    */
   readonly belowTarget: BelowTarget;
+  /**
+   * Where the bank settles short with its open steps too large (belowTarget.openStepsTooLarge): further steps
+   * and a lower threshold run over the profile by the same controller, and the hours each brings to the
+   * target (settledShortTrial.ts); null where there are no such hours.
+   */
+  readonly settledShortTrial: SettledShortTrial | null;
   /**
    * Where the sizing found no step size whose steps the controller closes up to the target at the sized need
    * (the last step's need under the response threshold): the channel, the need, kvar; otherwise null.

@@ -47,9 +47,10 @@ export const TRIANGLE_LAYOUT = { panelWidth: 210, top: 64, bottomText: 86, width
 
 /**
  * A current label: to 0.1 A as the correction's line table prints it, 2 significant figures where 0.1 A would
- * show a real current as 0.0 (ampsFigure, the warnings' rule), and a plain 0 for none (a line with no current).
+ * show a real current as 0.0 (ampsFigure, the warnings' rule); a line with no current as 0.0, as that table
+ * prints it (its 'no current' said beside it), never to more places than the real figures.
  */
-const amps = (x: number): string => (x === 0 ? '0' : ampsFigure(x));
+const amps = ampsFigure;
 /** A line's current and PF: the figure and PF, or only 'no current' where it carries none. */
 const currentText = (r: LineCurrentParts): string => (r.magnitudeA === 0 ? 'no current' : `${amps(r.magnitudeA)} A · ${pfText(r)}`);
 
