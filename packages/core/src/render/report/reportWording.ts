@@ -72,7 +72,7 @@ export const THREE_PHASE_STANDARDS: readonly StandardReference[] = [
 export const correctionStandards = (star: StarWord, threePhase = true): readonly StandardReference[] => [
   { name: 'IEC 60831-1', use: 'low-voltage shunt capacitors: capacitance tolerance, permitted voltage and current, discharge' },
   { name: 'IEEE Std 18', use: 'shunt power capacitors: continuous voltage, current and kvar limits' },
-  { name: 'IEEE Std 1036', use: 'application of shunt capacitors: voltage rise ΔV/V ≈ Qc/Ssc and parallel resonance order h = √(Ssc/Qc), both worked here from the reactance of the path the capacitor current takes (line and neutral on a single-phase board), ΔV/V ≈ Qc·Xpath/V² and h = √(Xc/Xpath), as the formulas assume X ≫ R; for unequal capacitors or a star bank on the neutral, the lowest order of the path’s reactances with the capacitances and the worst line’s rise' },
+  { name: 'IEEE Std 1036', use: `application of shunt capacitors: voltage rise ΔV/V ≈ Qc/Ssc and parallel resonance order h = √(Ssc/Qc), both worked here from the reactance of the path the capacitor current takes (line and neutral on a single-phase board), ΔV/V ≈ Qc·Xpath/V² and h = √(Xc/Xpath), as the formulas assume X ≫ R; for unequal capacitors or a ${star} bank on the neutral, the lowest order of the path’s reactances with the capacitances and the worst line’s rise` },
   { name: 'NEC Article 460', use: 'capacitor installations: discharge and conductor sizing (where the NEC applies)' },
   ...(threePhase ? [{ name: 'Steinmetz / Gyugyi balancing compensator', use: `delta and ${star} reactive branches that balance an unbalanced load` }] : []),
 ];
