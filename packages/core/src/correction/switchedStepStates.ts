@@ -20,7 +20,7 @@
 import type { PhaseId } from '../board/boardModel.js';
 import type { BoardResult } from '../analysis/boardResult.js';
 import { add, sub, type ComplexValue } from '../complex.js';
-import type { BankStep } from './correctionResult.js';
+import type { BankStep, StepStateCurrent } from './correctionResult.js';
 import { cleanSusceptance, type EquipmentGroup } from './equipment.js';
 import { NumericalError } from '../errors.js';
 
@@ -93,20 +93,8 @@ export function equipmentWithStepsOut(equipment: readonly EquipmentGroup[], step
   }));
 }
 
-/** The worst state of the switched steps where the CT reads, re-solved. */
-export interface WorstStepState {
-  readonly phase: PhaseId;
-  /** The largest line current in that state, re-solved, A. */
-  readonly currentA: number;
-  /** The same by superposition of the steps' design-state currents, A (what chose the state). */
-  readonly estimateA: number;
-  /** False where the state did not solve (the figure is then the superposition's). */
-  readonly solved: boolean;
-  readonly outputsIn: readonly number[];
-  readonly outputsOut: readonly number[];
-  /** What stays in with the steps: reactors, fixed capacitors. */
-  readonly fixedPart: { readonly reactors: boolean; readonly capacitors: boolean };
-}
+/** The worst state of the switched steps where the CT reads, re-solved: StepStateCurrent without the line's label (the caller names it). */
+export type WorstStepState = Omit<StepStateCurrent, 'lineLabel'>;
 
 export interface StepStateInputs {
   /** Every step of the bank as built (the fixed part has output null). */
