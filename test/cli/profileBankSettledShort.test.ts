@@ -33,7 +33,7 @@ describe('a bank settled short of the target, its open step too large for the ne
     // threshold; that closes too: Q 30 − 16.9 = 13.1 kvar, PF 40/√(40² + 13.1²) = 0.9503, at the target.
     // 11.85/30 = 0.40 is below the 0.5 least share: no threshold offered.
     expect(text).toContain(
-      'board PF below 0.95 with the bank: 2.00 h of import — 2.00 h settled short of the target with the steps still open each too large for what is left: 11.85 kvar still needed, while a step closes only for a need above 0.67 × its kvar, 20.10 kvar for the smallest step still open (30.0 kvar) — a further 11.9 kvar step brings them all to the target (tried over the profile with the same controller: no hour below the target in all with it, 2.00 h without)',
+      'board PF below 0.95 with the bank: 2.00 h of import — 2.00 h settled short of the target with the steps still open each too large for what is left: 11.85 kvar still needed, while a step closes only for a need above 0.67 × its kvar, 20.10 kvar for the smallest step still open (30.0 kvar) — tried over the profile with the same controller: a further 11.9 kvar step brings them all to the target (no hour below the target in all with it, 2.00 h without)',
     );
     expect(text).not.toContain('on its way');
     const [head, ...rows] = readFileSync(intervals, 'utf8').trim().split('\n').map((l) => l.split(','));

@@ -111,6 +111,15 @@ describe('steps still open, each too large for what is left', () => {
     expect(belowTargetWords(result(0.67, one, 'correction-study'))).toContain("(the controller's C/k setting; 0.5 at the least");
   });
 
+  it('offers no threshold "under 0.50": 10.1/20 = 0.505 floors to the least share accepted, and nothing under it can be set', () => {
+    const edge = hoursBelowTarget(figures([30], [10.1 + 30 * TAN_095]), { targetPf: 0.95, upperPf: null, responseShare: 0.67 }, { steps: twoAndTwenty, stepOn: [Uint8Array.of(1), Uint8Array.of(0)], phases: ['A'] }, 1_800_000);
+    expect(edge.openStepsTooLarge?.closingShare).toBeCloseTo(0.505, 3);
+    const words = belowTargetWords(result(0.67, edge));
+    // 10.1/0.67 = 15.07 → under 15.0 kvar.
+    expect(words).toContain('10.10 kvar still needed, while a step closes only for a need above 0.67 × its kvar, 13.40 kvar for the smallest step still open (20.0 kvar) — a further step under 15.0 kvar would close for it');
+    expect(words).not.toContain('switching threshold under');
+  });
+
   it('a step that may close is the controller on its way, not stuck: 14 kvar left, above the 13.4 kvar threshold', () => {
     const moving = hoursBelowTarget(figures([30], [14 + 30 * TAN_095]), { targetPf: 0.95, upperPf: null, responseShare: 0.67 }, { steps: twoAndTwenty, stepOn: [Uint8Array.of(1), Uint8Array.of(0)], phases: ['A'] }, 1_800_000);
     expect([moving.onTheWayHours, moving.openStepsTooLargeHours]).toEqual([0.5, 0]);

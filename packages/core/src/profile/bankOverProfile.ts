@@ -174,7 +174,7 @@ export function bankOverProfile(input: BankOverProfileInput, options: Pick<Profi
       input.rowHours ?? null,
     );
     const settledShortTrial = belowTarget.openStepsTooLarge
-      ? trySettledShort({ steps, fixed, settings, settledShort, closingShare: belowTarget.openStepsTooLarge.closingShare, simulate: input.simulate, intervalMs: input.intervalMs, intervals: n, phases: board.phases, rowHours: input.rowHours ?? null })
+      ? trySettledShort({ steps, fixed, settings, settledShort, closingShare: belowTarget.openStepsTooLarge.closingShare, simulate: input.simulate, asIs: run, intervalMs: input.intervalMs, intervals: n, phases: board.phases, rowHours: input.rowHours ?? null })
       : null;
     const bank: ProfileBankResult = {
       source,

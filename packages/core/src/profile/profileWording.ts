@@ -230,8 +230,10 @@ const floorTo = (x: number, decimals: number) => Math.floor(x * 10 ** decimals +
  * The hours the controller held a state short of the target with steps still open, each too large for what
  * was left (BelowTarget.openStepsTooLarge), and what would cure them: the further step (one per channel
  * stuck) and the lower threshold rehearsed over the profile by the same controller (settledShortTrial.ts),
- * with the hours each brings to the target. A step that merely closes there is no cure: the need left after
- * it may still sit under every open step's threshold. A result without the trial says only what would close.
+ * with the hours each brings to the target and the hours below the target in all with it, each beside its own
+ * remedy. A step that merely closes there is no cure: the need left after it may still sit under every open
+ * step's threshold; nor is one that leaves more hours below the target in all. A result without the trial says
+ * only what would close.
  */
 function openStepsTooLargeWords(b: ProfileBankResult, hours: (h: number) => string, settledHours: number): string {
   const share = b.settings.responseShare;
@@ -251,7 +253,8 @@ function openStepsTooLargeWords(b: ProfileBankResult, hours: (h: number) => stri
     const step = floorTo(r.closingStepKvar, 1);
     const lowerShare = floorTo(r.closingShare, 2);
     const threshold =
-      lowerShare >= MIN_RESPONSE_SHARE && lowerShare < share ? `, or a switching threshold under ${lowerShare.toFixed(2)} × the step (${setting}; ${MIN_RESPONSE_SHARE} at the least, lower and it hunts)` : '';
+      // "under x" with x the least share accepted would offer nothing a file can hold.
+      lowerShare > MIN_RESPONSE_SHARE && lowerShare < share ? `, or a switching threshold under ${lowerShare.toFixed(2)} × the step (${setting}; ${MIN_RESPONSE_SHARE} at the least, lower and it hunts)` : '';
     return facts + (step > 0 ? ` — a further step under ${step.toFixed(1)} kvar${place} would close for it${threshold}` : '');
   }
   const all = trial.settledShortHours;
@@ -260,19 +263,19 @@ function openStepsTooLargeWords(b: ProfileBankResult, hours: (h: number) => stri
   const cures = (reached: number, one = further.length === 1) =>
     reached >= all - 1e-9 ? `${bring(one)} them all to the target` : reached <= 1e-9 ? `${bring(one)} none of them to the target` : `${bring(one)} ${hours(reached)} of the ${hours(all)} h to the target`;
   const steps = further.length === 1 ? `a further ${further[0]} step` : `further steps of ${further.join(' and ')}`;
-  const tried = `none of the ${trial.triedKvar.count} further step sizes tried (${trial.triedKvar.least.toFixed(1)} to ${trial.triedKvar.most.toFixed(1)} kvar)`;
-  const remedy =
-    trial.reachedHours >= all - 1e-9
-      ? `${steps} ${cures(trial.reachedHours)}`
-      : trial.reachedHours <= 1e-9
-        ? `${tried} brings any of them to the target`
-        : `${tried} brings them all to the target; ${steps} ${cures(trial.reachedHours)}`;
-  // What the step does to the whole record: it changes which step closes first in other hours too.
-  const inAll = trial.reachedHours > 1e-9 ? `: ${trial.hoursBelowWith <= 1e-9 ? 'no hour' : `${hours(trial.hoursBelowWith)} h`} below the target in all with ${further.length === 1 ? 'it' : 'them'}, ${hours(b.belowTarget.hours)} h without` : '';
-  const threshold = trial.lowerShare
-    ? `; a switching threshold under ${trial.lowerShare.share.toFixed(2)} × the step (${setting}; ${MIN_RESPONSE_SHARE} at the least, lower and it hunts) ${cures(trial.lowerShare.reachedHours, true)}`
+  const inAll = (below: number, one: boolean) => `${below <= 1e-9 ? 'no hour' : `${hours(below)} h`} below the target in all with ${one ? 'it' : 'them'}, ${hours(trial.hoursBelowWithout)} h without`;
+  const sizes = `${trial.triedKvar.count} further step sizes tried (${trial.triedKvar.least.toFixed(1)} to ${trial.triedKvar.most.toFixed(1)} kvar)`;
+  // A step is offered only where it lowers the hours below the target in all; its own figure stands beside it.
+  const remedy = !trial.lowersHoursBelow
+    ? `none of the ${sizes} lowers the hours below the target (${hours(trial.hoursBelowWithout)} h without, at least ${hours(trial.hoursBelowWith)} h with any of them)`
+    : trial.reachedHours < all - 1e-9 && !trial.someReachedAll
+      ? `none of the ${sizes} brings them all to the target; ${steps} ${cures(trial.reachedHours)} (${inAll(trial.hoursBelowWith, further.length === 1)})`
+      : `${steps} ${cures(trial.reachedHours)} (${inAll(trial.hoursBelowWith, further.length === 1)})`;
+  const lower = trial.lowerShare;
+  const threshold = lower
+    ? `; a switching threshold of ${lower.share.toFixed(2)} × the step (${setting}; ${MIN_RESPONSE_SHARE} at the least, lower and it hunts) ${cures(lower.reachedHours, true)} (${inAll(lower.hoursBelowWith, true)})`
     : '';
-  return `${facts} — ${remedy}${threshold} (tried over the profile with the same controller${inAll})`;
+  return `${facts} — tried over the profile with the same controller: ${remedy}${threshold}`;
 }
 
 /**

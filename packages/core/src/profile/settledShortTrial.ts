@@ -4,6 +4,8 @@
  * after it closes the need left may still be above its own threshold with the other open steps too large,
  * and a step added to the bank changes which step the controller takes first elsewhere. So each candidate
  * is run over the whole profile by the same simulation, and the hours it brings to the target are counted.
+ * A candidate is a remedy only where the hours below the target in all fall: a step that cures the stuck
+ * hours and breaks others elsewhere makes the record worse.
  */
 import type { StepChannel, SwitchedStep, SwitchingSettings } from './bankController.js';
 import type { SettledShortInterval } from './belowTargetHours.js';
@@ -16,7 +18,12 @@ import { MIN_RESPONSE_SHARE } from './profileDefaults.js';
 export interface SettledShortTrial {
   /** The hours settled short with the bank as it is. */
   readonly settledShortHours: number;
-  /** One further step per stuck channel, the best tried (most of those hours at the target, then fewest hours below it in all, then least kvar). */
+  /** The hours below the target in all with the bank as it is, judged as the candidates are. */
+  readonly hoursBelowWithout: number;
+  /**
+   * A further step on one stuck channel, or one on each together, the best tried (fewest hours below the target in all, then most of the
+   * settled-short hours at the target, then least kvar). A remedy only where `hoursBelowWith` < `hoursBelowWithout`.
+   */
   readonly furtherSteps: readonly { readonly channel: StepChannel; readonly kvar: number }[];
   /** Of `settledShortHours`, the hours at the target with those steps added. */
   readonly reachedHours: number;
@@ -24,8 +31,16 @@ export interface SettledShortTrial {
   readonly hoursBelowWith: number;
   /** The further step sizes tried: the least and most, kvar, and how many (on every stuck channel together). */
   readonly triedKvar: { readonly least: number; readonly most: number; readonly count: number };
-  /** A lower switching threshold (share of the step) and the hours it brings to the target; null where none at MIN_RESPONSE_SHARE or above would let a step close. */
-  readonly lowerShare: { readonly share: number; readonly reachedHours: number } | null;
+  /** Whether `furtherSteps` is a remedy: the hours below the target in all fewer with them than without. */
+  readonly lowersHoursBelow: boolean;
+  /** Whether some size tried, though not the best, brought every settled-short hour to the target. */
+  readonly someReachedAll: boolean;
+  /**
+   * A lower switching threshold (share of the step, simulated at exactly this share), the settled-short hours
+   * it brings to the target and the hours below the target in all with it; null where no share the schema
+   * accepts (MIN_RESPONSE_SHARE or above) lets a step close, or where it does not lower the hours below the target.
+   */
+  readonly lowerShare: { readonly share: number; readonly reachedHours: number; readonly hoursBelowWith: number } | null;
 }
 
 export interface SettledShortTrialInput {
@@ -36,6 +51,8 @@ export interface SettledShortTrialInput {
   /** The threshold share under which an open step closes in every settled-short interval (BelowTarget.openStepsTooLarge.closingShare). */
   readonly closingShare: number;
   readonly simulate: (steps: readonly SwitchedStep[], fixed: readonly SwitchedStep[], settings: SwitchingSettings) => BankRun;
+  /** The run of the bank as it is (`steps`, `fixed`, `settings`), the record every candidate is compared with. */
+  readonly asIs: BankRun;
   readonly intervalMs: number;
   /** The intervals in the record: a long one is given fewer trial runs. */
   readonly intervals: number;
@@ -116,9 +133,10 @@ export function trySettledShort(input: SettledShortTrialInput): SettledShortTria
     ...judge(input.simulate([...steps, ...further], fixed, settings), channel),
   });
   const same = (a: number, b: number) => Math.abs(a - b) <= 1e-9;
-  // A channel's own hours at its target first: where several channels are stuck in one interval, no step on
-  // one of them brings the board there alone, and the board's count cannot tell the sizes apart.
-  const better = (a: Tried, b: Tried | null) =>
+  // Each channel's step to pair with the others: its own hours at its target first, since where several
+  // channels are stuck in one interval no step on one of them brings the board there alone, and the board's
+  // count cannot tell the sizes apart.
+  const closerOnChannel = (a: Tried, b: Tried | null) =>
     !b ||
     (!same(a.channelReached, b.channelReached)
       ? a.channelReached > b.channelReached
@@ -127,8 +145,11 @@ export function trySettledShort(input: SettledShortTrialInput): SettledShortTria
         : !same(a.belowAll, b.belowAll)
           ? a.belowAll < b.belowAll
           : total(a) < total(b));
+  // What is offered: the whole record first, since a step that cures the stuck hours but leaves more hours
+  // below the target elsewhere is no remedy; then the stuck hours it brings to the target; then least kvar.
+  const boardWide = (a: Tried, b: Tried | null) =>
+    !b || (!same(a.belowAll, b.belowAll) ? a.belowAll < b.belowAll : !same(a.reached, b.reached) ? a.reached > b.reached : total(a) < total(b));
   const total = (t: Tried) => t.furtherSteps.reduce((a, s) => a + s.kvar, 0);
-  const boardWide = (a: Tried, b: Tried | null) => better({ ...a, channelReached: 0 }, b && { ...b, channelReached: 0 });
 
   const needs = new Map<StepChannel, number[]>();
   for (const s of settledShort) for (const [c, need] of s.needKvar) needs.set(c, [...(needs.get(c) ?? []), need]);
@@ -137,6 +158,7 @@ export function trySettledShort(input: SettledShortTrialInput): SettledShortTria
   let sizesTried = 0;
   let best: Tried | null = null;
   const bestOf = new Map<StepChannel, Tried>();
+  let someReachedAll = false;
   let least = Infinity;
   let most = 0;
   for (const c of channels) {
@@ -145,9 +167,10 @@ export function trySettledShort(input: SettledShortTrialInput): SettledShortTria
       least = Math.min(least, kvar);
       most = Math.max(most, kvar);
       const t = tryWith([{ channel: c, kvar }], c);
-      if (better(t, bestOf.get(c) ?? null)) bestOf.set(c, t);
+      if (t.reached >= settledShortHours - 1e-9) someReachedAll = true;
+      if (closerOnChannel(t, bestOf.get(c) ?? null)) bestOf.set(c, t);
+      if (boardWide(t, best)) best = t;
     }
-    if (bestOf.has(c) && boardWide(bestOf.get(c)!, best)) best = bestOf.get(c)!;
   }
   // Stuck on several channels: each channel's best together, where one alone leaves hours short.
   if (channels.length > 1 && best && best.reached < settledShortHours - 1e-9) {
@@ -155,10 +178,25 @@ export function trySettledShort(input: SettledShortTrialInput): SettledShortTria
     if (boardWide(together, best)) best = together;
   }
   if (!best) return null;
-  const share = floorTo(input.closingShare, 2);
-  const lowerShare =
-    share >= MIN_RESPONSE_SHARE && share < settings.responseShare
-      ? { share, reachedHours: judge(input.simulate(steps, fixed, { ...settings, responseShare: share - 0.001 }), null).reached }
-      : null;
-  return { settledShortHours, furtherSteps: best.furtherSteps, reachedHours: best.reached, hoursBelowWith: best.belowAll, triedKvar: { least, most, count: sizesTried }, lowerShare };
+  const hoursBelowWithout = judge(input.asIs, null).belowAll;
+  // The share printed is the share simulated, and one the schema accepts: two decimals, under the share at which
+  // an open step would just close (a step closes only while the need is above share × step).
+  const floored = floorTo(input.closingShare, 2);
+  const share = input.closingShare - floored < 1e-6 ? floorTo(floored - 0.01, 2) : floored;
+  let lowerShare: SettledShortTrial['lowerShare'] = null;
+  if (share >= MIN_RESPONSE_SHARE && share < settings.responseShare) {
+    const t = judge(input.simulate(steps, fixed, { ...settings, responseShare: share }), null);
+    if (t.belowAll < hoursBelowWithout - 1e-9) lowerShare = { share, reachedHours: t.reached, hoursBelowWith: t.belowAll };
+  }
+  return {
+    settledShortHours,
+    hoursBelowWithout,
+    furtherSteps: best.furtherSteps,
+    reachedHours: best.reached,
+    hoursBelowWith: best.belowAll,
+    lowersHoursBelow: best.belowAll < hoursBelowWithout - 1e-9,
+    someReachedAll,
+    triedKvar: { least, most, count: sizesTried },
+    lowerShare,
+  };
 }
