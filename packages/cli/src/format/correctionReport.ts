@@ -208,7 +208,8 @@ function selectionBlock(sel: BankSelection, label: PhaseLabeller, star: StarWord
     indentLines([
       `units from the ${sel.catalogueTitle}${sel.catalogue === 'typical' ? ` — ${sel.catalogueNote}` : ''}`,
       `unit rating ≥ nominal voltage + ${fixed(sel.voltageMarginPercent, 0)} % (${sel.practice === 'iec' ? 'IEC' : 'North-American'} practice) and ≥ highest solved voltage / ${fixed(sel.continuousLimitPercent / 100, 2)}; every unit delivers ≥ ${fixed(sel.deliveryFloorPercent, 0)} % of its nameplate at nominal voltage; capacitance tolerance −${sel.capacitanceTolerance.minusPercent} % / +${sel.capacitanceTolerance.plusPercent} %`,
-      `chosen for ${sel.cost.statement} (cost ${fixed(sel.cost.value, 1)})`,
+      // Nothing bought: there is no build to call the least cost.
+      sel.units > 0 ? `chosen for ${sel.cost.statement} (cost ${fixed(sel.cost.value, 1)})` : 'no unit bought, so no build and no cost to state',
     ]),
   );
   out.push(branchTable(sel, label, emptyInSizing));
