@@ -364,7 +364,9 @@ function resonanceWords(v: CorrectionVerification, detuned: boolean): string {
   const reactors = c.reactorKvar > 0 ? `; Q_L = ${fixed(c.reactorKvar, 1)} kvar of reactors added` : '';
   const path = `; X_path = ${pathReactanceWords(v)} (S_sc,X = ${fixed(c.reactanceShortCircuitKVA ?? 0, 0)} kVA; its resistance damps the peak but hardly moves it)`;
   const near = v.resonanceNearOrders.length ? `; within 10 % of order ${v.resonanceNearOrders.join(', ')}` : '';
-  return `${head} at about ${figure}${near}; Q_C = ${parts.join(' + ')}${reactors}${path}`;
+  // Estimated with all the added capacitance in: fewer steps in raise every order (less capacitance).
+  const states = c.addedKvar > 0 ? '; with every step in (with fewer steps in, the orders lie higher)' : '';
+  return `${head} at about ${figure}${near}; Q_C = ${parts.join(' + ')}${reactors}${path}${states}`;
 }
 
 /** `detuned`: the bank's steps sit behind reactors, so √(S_sc/Qc) does not apply (the harmonic check covers it). */
