@@ -7,6 +7,7 @@
 import { describe, expect, it } from 'vitest';
 import { correctBoard, normaliseBoard, parseBoard } from '@trivar/core';
 import { renderCorrectionReport } from '../../packages/cli/src/format/correctionReport.js';
+import { resonanceSection } from '../../packages/core/src/render/report/correctionSection.js';
 
 // A malting floor (invented): kiln fans across the three lines and star-connected heaters, on a 4-wire
 // supply whose neutral runs 80 m with a high reactance.
@@ -44,5 +45,10 @@ describe('the resonance estimate of a switched star bank', () => {
 
   it('says the same on the check line', () => {
     expect(text).toMatch(/parallel resonance with the supply at about h = 7\.46 .*; with every step in \(with fewer steps in, the orders lie higher\)/);
+  });
+
+  it('says the same in the written report\'s resonance facts', () => {
+    const section = JSON.stringify(resonanceSection(report));
+    expect(section).toContain('30.0 kvar added, every step in (with fewer steps in, the orders lie higher)');
   });
 });
