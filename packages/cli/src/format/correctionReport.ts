@@ -123,16 +123,22 @@ function stepsTable(sel: BankSelection, label: PhaseLabeller, star: StarWord): s
 /** True when no capacitance meets the target at the low tolerance and stays within the bounds at the high one. */
 const emptyWindow = (s: BankSelection['selections'][number]) => s.maximumCapacitanceUF !== null && s.maximumCapacitanceUF < s.minimumCapacitanceUF;
 
-/** The two bounds of an empty window, with enough decimals that they read differently. */
-function emptyWindowNote(sel: BankSelection, s: BankSelection['selections'][number], label: PhaseLabeller): string {
+/**
+ * The two bounds of an empty window, with enough decimals that they read differently. The window is first
+ * order, around the sizing's capacitance (a compensator's ideal one): where the board re-solved at both
+ * tolerance ends still passes (`toleranceHeld`), the note says so rather than that nothing can meet the target.
+ */
+function emptyWindowNote(sel: BankSelection, s: BankSelection['selections'][number], label: PhaseLabeller, toleranceHeld: boolean): string {
   const hi = s.maximumCapacitanceUF ?? 0;
   let d = 1;
   while (d < 4 && fixed(s.minimumCapacitanceUF, d) === fixed(hi, d)) d++;
   const tol = sel.capacitanceTolerance;
+  if (toleranceHeld)
+    return `${label(s.branch)}: the first-order range around the sizing's ${fixed(s.requiredCapacitanceUF, 1)} µF is empty — keeping that much at −${tol.minusPercent} % takes at least ${fixed(s.minimumCapacitanceUF, d)} µF nominal, staying within every line's bounds at +${tol.plusPercent} % allows at most ${fixed(hi, d)} µF; re-solved at both tolerance ends, the ${fixed(s.designCapacitanceUF, 1)} µF built passes (see the Checks)`;
   return `${label(s.branch)}: no capacitance satisfies both tolerance ends — meeting the target at −${tol.minusPercent} % needs at least ${fixed(s.minimumCapacitanceUF, d)} µF nominal, keeping every line within its bounds at +${tol.plusPercent} % allows at most ${fixed(hi, d)} µF`;
 }
 
-function branchTable(sel: BankSelection, label: PhaseLabeller, emptyInSizing: readonly string[]): string {
+function branchTable(sel: BankSelection, label: PhaseLabeller, emptyInSizing: readonly string[], toleranceHeld: boolean): string {
   const table = renderTable(
     [
       { header: 'branch', align: 'left' },
@@ -166,7 +172,7 @@ function branchTable(sel: BankSelection, label: PhaseLabeller, emptyInSizing: re
           `µF needed: the range of an equal bank (balanced steps, the same capacitance on every branch) — with every branch anywhere in it, every line meets the target at −${tol.minusPercent} % and stays within its bounds at +${tol.plusPercent} %; the build chosen is such a bank, judged on that range rather than each branch's own${filledHere(sel, label, emptyInSizing)}`,
         ]
       : []),
-    ...sel.selections.filter(emptyWindow).map((s) => emptyWindowNote(sel, s, label)),
+    ...sel.selections.filter(emptyWindow).map((s) => emptyWindowNote(sel, s, label, toleranceHeld)),
   ];
   return notes.length ? `${table}\n${indentLines(notes)}` : table;
 }
@@ -195,7 +201,8 @@ function controllerLines(c: ControllerSettings): string[] {
   ];
 }
 
-function selectionBlock(sel: BankSelection, label: PhaseLabeller, star: StarWord, emptyInSizing: readonly string[] = []): string {
+/** `toleranceHeld`: the build re-solved at both capacitance tolerance ends meets the target and leads no line past its bounds. */
+function selectionBlock(sel: BankSelection, label: PhaseLabeller, star: StarWord, emptyInSizing: readonly string[] = [], toleranceHeld = false): string {
   const out: string[] = [];
   out.push(
     `  delivered ${fixed(sel.deliveredKvar, 2)} kvar at the solved voltage · nameplate ${fixed(sel.nameplateKvar, 2)} kvar · ${sel.units} unit${sel.units === 1 ? '' : 's'} · ${sel.steps.filter((s) => s.output !== null).length} switched step(s)`,
@@ -208,10 +215,11 @@ function selectionBlock(sel: BankSelection, label: PhaseLabeller, star: StarWord
     indentLines([
       `units from the ${sel.catalogueTitle}${sel.catalogue === 'typical' ? ` — ${sel.catalogueNote}` : ''}`,
       `unit rating ≥ nominal voltage + ${fixed(sel.voltageMarginPercent, 0)} % (${sel.practice === 'iec' ? 'IEC' : 'North-American'} practice) and ≥ highest solved voltage / ${fixed(sel.continuousLimitPercent / 100, 2)}; every unit delivers ≥ ${fixed(sel.deliveryFloorPercent, 0)} % of its nameplate at nominal voltage; capacitance tolerance −${sel.capacitanceTolerance.minusPercent} % / +${sel.capacitanceTolerance.plusPercent} %`,
-      `chosen for ${sel.cost.statement} (cost ${fixed(sel.cost.value, 1)})`,
+      // Nothing bought: there is no build to call the least cost.
+      sel.units > 0 ? `chosen for ${sel.cost.statement} (cost ${fixed(sel.cost.value, 1)})` : 'no unit bought, so no build and no cost to state',
     ]),
   );
-  out.push(branchTable(sel, label, emptyInSizing));
+  out.push(branchTable(sel, label, emptyInSizing, toleranceHeld));
   if (sel.controller) out.push(`  Controller\n${indentLines(controllerLines(sel.controller).map((l) => `  ${l}`))}`);
   return out.join('\n');
 }
@@ -356,7 +364,9 @@ function resonanceWords(v: CorrectionVerification, detuned: boolean): string {
   const reactors = c.reactorKvar > 0 ? `; Q_L = ${fixed(c.reactorKvar, 1)} kvar of reactors added` : '';
   const path = `; X_path = ${pathReactanceWords(v)} (S_sc,X = ${fixed(c.reactanceShortCircuitKVA ?? 0, 0)} kVA; its resistance damps the peak but hardly moves it)`;
   const near = v.resonanceNearOrders.length ? `; within 10 % of order ${v.resonanceNearOrders.join(', ')}` : '';
-  return `${head} at about ${figure}${near}; Q_C = ${parts.join(' + ')}${reactors}${path}`;
+  // Estimated with all the added capacitance in: fewer steps in raise every order (less capacitance).
+  const states = c.addedKvar > 0 ? '; with every step in (with fewer steps in, the orders lie higher)' : '';
+  return `${head} at about ${figure}${near}; Q_C = ${parts.join(' + ')}${reactors}${path}${states}`;
 }
 
 /** `detuned`: the bank's steps sit behind reactors, so √(S_sc/Qc) does not apply (the harmonic check covers it). */
@@ -540,7 +550,7 @@ export function renderCorrectionReport(r: CorrectionReport): string {
   }
   // Branches the bank's continuous sizing left empty (the "-" rows of its table), for the units table's note.
   const emptyInSizing = r.sizing.arrangement === 'balancing-compensator' ? [] : r.sizing.branches.filter((b) => b.element === 'none').map((b) => b.branch);
-  if (r.selection) parts.push(section('Bank as built from units') + selectionBlock(r.selection, label, starWordOf(v.before.conventions.region), emptyInSizing));
+  if (r.selection) parts.push(section('Bank as built from units') + selectionBlock(r.selection, label, starWordOf(v.before.conventions.region), emptyInSizing, v.tolerance.low.check.met && v.tolerance.high.check.leadingLines.length === 0));
   if (v.metering) parts.push(meteringSection(v.metering, lineTable(v.metering, label)));
   parts.push(section('Lines, before → after (verified by re-solving the board)') + lineTable(v, label));
   parts.push(section('Board, before → after') + boardLines(v));

@@ -68,7 +68,7 @@ export const bankSchema = z
 export const controllerSchema = z
   .strictObject({
     outputs: z.literal(CONTROLLER_OUTPUTS).optional().describe('switched outputs of the controller (6, 8 or 12); default 6'),
-    ctPrimaryA: z.number().positive().optional().describe('current transformer primary, A; default the next standard rating at or above 1.25 × the largest line current where the controller reads (target.measuredAt, else the board), before or after correction, whichever is larger'),
+    ctPrimaryA: z.number().positive().optional().describe('current transformer primary, A; default the next standard rating at or above 1.25 × the largest line current where the controller reads (target.measuredAt, else the board), before or after correction or in any state of the switched steps, whichever is largest'),
     ctSecondaryA: z.literal([1, 5]).optional().describe('current transformer secondary, A; default 5'),
     switchingDelayS: z.number().positive().max(3600).optional().describe('delay before a step is switched, s; default 30'),
   })

@@ -142,6 +142,13 @@ export const NO_LEADING_LIMIT = 'no-leading limit';
 export const limitWords = (target: { readonly leading?: string | undefined; readonly maxLaggingPf?: number | undefined }): string =>
   target.leading === 'allowed' ? 'leading limit' : target.maxLaggingPf !== undefined ? 'upper PF bound' : NO_LEADING_LIMIT;
 
+/**
+ * The resonance estimate is of the state with all the added capacitance in. Less capacitance (fewer steps in)
+ * raises every order of the LC network, so a switched state can sit near an order the full bank misses.
+ */
+const STEP_STATES_WORDS =
+  '. The estimate is for every step in: with fewer steps in the orders rise and can fall near other harmonic orders (the harmonic check, run where the board has a harmonics section, scans every step combination)';
+
 export const warningText = {
   reactorsResized: (reactors: ResizingWords['reactors']) =>
     `the reactors were sized again beside the capacitors as built from units (${reactorChanges(reactors)} at nominal voltage): the build verified here has the re-sized reactors`,
@@ -162,7 +169,9 @@ export const warningText = {
   voltageRise: (what: string, percent: number, limit: number) => `${what} raises the board voltage by about ${percent.toFixed(2)} %, above the ${f1(limit)} % flag level`,
   /** @param capacitance what resonates: the bank, the leading loads already on the board, or both */
   lowResonance: (orders: readonly number[], capacitance: 'bank' | 'board' | 'both' = 'bank', near: readonly number[] = []) =>
-    `${capacitance === 'bank' ? 'the bank' : capacitance === 'board' ? "the board's own leading loads (capacitance already in service)" : "the bank with the board's own leading loads"} and the supply inductance resonate near harmonic order${orders.length > 1 ? 's' : ''} ${orders.map((h) => h.toFixed(1)).join(' and ')}${near.length ? ` (within 10 % of the ${near.map(ordinal).join(' and the ')})` : ''}, estimated from the supply path's reactances and the capacitances: with harmonic-producing loads on the board this needs a harmonic study and probably a detuned bank`,
+    `${capacitance === 'bank' ? 'the bank' : capacitance === 'board' ? "the board's own leading loads (capacitance already in service)" : "the bank with the board's own leading loads"} and the supply inductance resonate near harmonic order${orders.length > 1 ? 's' : ''} ${orders.map((h) => h.toFixed(1)).join(' and ')}${near.length ? ` (within 10 % of the ${near.map(ordinal).join(' and the ')})` : ''}, estimated from the supply path's reactances and the capacitances: with harmonic-producing loads on the board this needs a harmonic study and probably a detuned bank${
+      capacitance === 'board' ? '' : STEP_STATES_WORDS
+    }`,
   /** The same resonance where the harmonic check scanned the plain bank in the same study: the estimate defers to the scan. */
   lowResonanceScanned: (orders: readonly number[], near: readonly number[], lowestPeak: number | null, passes: boolean) =>
     `the estimate from the supply path's reactances puts the resonance of the capacitance with the supply near harmonic order${orders.length > 1 ? 's' : ''} ${orders.map((h) => h.toFixed(1)).join(' and ')}${near.length ? ` (within 10 % of the ${near.map(ordinal).join(' and the ')})` : ''}; the harmonic check of this study ${lowestPeak === null ? 'found no resonance peak in its range' : `scanned its lowest peak at h = ${lowestPeak.toFixed(2)}`} and ${passes ? 'passes the plain bank: no order in the spectra entered lies near a peak. The spectra are typical or entered ones: measure the real spectrum of the board before installing, and again when harmonic-producing loads are added' : 'fails the plain bank (see the harmonic check)'}`,

@@ -34,7 +34,7 @@ import { parseOptions } from '../_internal/zodIssues.js';
 import { labellerOf, PHASE_NAMINGS, type PhaseNaming } from '../board/conventions/phaseNames.js';
 import { REGIONS, type Region } from '../board/conventions/region.js';
 import { starWordOf } from '../board/conventions/regionWords.js';
-import { firstFit, leastCostOverWindows, searchSet, shortOfTarget, type Need, type SetBuild, type UnitChoice } from './_internal/bankSearch.js';
+import { cheapestStepUnits, firstFit, leastCostOverWindows, searchSet, shortOfTarget, type Need, type SetBuild, type UnitChoice } from './_internal/bankSearch.js';
 import { defaultPractice } from './capacitorDischarge.js';
 import { controllerSettings, controllerWarnings, ctBasisOf, resolveCurrentTransformer, responseThresholdA } from './controllerSettings.js';
 import { checkObjectArgument } from '../_internal/argumentChecks.js';
@@ -249,7 +249,7 @@ export function selectBankUnitsPreferring(sized: SizedEquipment, options: Select
   const usedNeed: Need[] = branchInfo.map((x) => x.need);
   const designF = sized.branches.map(() => 0);
   const fixedF = sized.branches.map(() => 0);
-  const builds: { set: (typeof sets)[number]; build: SetBuild }[] = [];
+  const builds: { set: (typeof sets)[number]; build: SetBuild; choices: readonly UnitChoice[] }[] = [];
   const unbuildable: number[] = [];
   let equalBankWindows = false;
   // Whether a build with single-line steps was weighed against equal steps (the cost statement then says how).
@@ -303,7 +303,7 @@ export function selectBankUnitsPreferring(sized: SizedEquipment, options: Select
       fixedF[i] = build.fixedF[k]!;
       usedNeed[i] = build.needs[k]!;
     });
-    builds.push({ set, build });
+    builds.push({ set, build, choices: balancedChoices });
     // The search hands back the very needs it judged the build on: the equal bank's, or each branch's own.
     if (equalNeeds !== undefined && build.needs === equalNeeds) equalBankWindows = true;
     const names = set.indices.map((i) => label(branchInfo[i]!.b.branch));
@@ -373,12 +373,17 @@ export function selectBankUnitsPreferring(sized: SizedEquipment, options: Select
       onAtDesign: true,
     };
   };
-  for (const { set, build } of builds) {
+  for (const { set, build, choices } of builds) {
     const lone = set.indices.length === 1;
     if (build.balanced) {
       const { choice, fixedCount, stepCounts } = build.balanced;
-      if (fixedCount > 0) steps.push(makeStep('fixed', choice, fixedCount, set.indices, false));
-      for (const count of stepCounts) steps.push(makeStep(lone ? 'single' : 'balanced', choice, count, set.indices, true));
+      // A lone branch's step may be one larger can where the search counted several small ones (same µF, less cost).
+      const part = (kind: BankStep['part'], count: number, switched: boolean) => {
+        const made = lone ? cheapestStepUnits(count, choice, choices, unitCostKvar) : { choice, count };
+        steps.push(makeStep(kind, made.choice, made.count, set.indices, switched));
+      };
+      if (fixedCount > 0) part('fixed', fixedCount, false);
+      for (const count of stepCounts) part(lone ? 'single' : 'balanced', count, true);
     }
     for (const t of build.trims) steps.push(makeStep('trim', t.choice, t.count, [set.indices[t.branch]!], true));
   }

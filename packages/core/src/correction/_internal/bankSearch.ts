@@ -572,3 +572,29 @@ export function searchSet(
   if (bestTrimmed === null) return best!;
   return better(acrossKinds(bestTrimmedKey), acrossKinds(bestKey)) ? bestTrimmed : best!;
 }
+
+/**
+ * The cheapest way to make one step of `count` × `choice` on a lone branch from a single kind of
+ * unit among `choices`: the same capacitance (to 1 part in 10⁶) from fewer or cheaper units where
+ * the catalogue has them (two 1 kvar cans are one 2 kvar can of the same rating). The search
+ * splits one unit choice into steps; this rebuilds each step, so the step's µF, and with it the
+ * verified answer, stay as they were while the cost can only fall.
+ * @example cheapestStepUnits(2, oneKvar, [oneKvar, twoKvar], 2) //=> { choice: twoKvar, count: 1 }
+ */
+export function cheapestStepUnits(count: number, choice: UnitChoice, choices: readonly UnitChoice[], unitCostKvar: number): { choice: UnitChoice; count: number } {
+  const targetF = count * choice.elementF;
+  const costOf = (c: UnitChoice, m: number) => m * c.unitsPerCount * (c.unit.ratedKvar + unitCostKvar);
+  let best = { choice, count };
+  let bestCost = costOf(choice, count);
+  for (const c of choices) {
+    if (!(c.elementF > 0) || c.unitsPerCount !== choice.unitsPerCount) continue;
+    const m = Math.round(targetF / c.elementF);
+    if (m < 1 || Math.abs(m * c.elementF - targetF) > 1e-6 * targetF) continue;
+    const cost = costOf(c, m);
+    if (cost < bestCost - 1e-9) {
+      best = { choice: c, count: m };
+      bestCost = cost;
+    }
+  }
+  return best;
+}

@@ -218,7 +218,8 @@ export function correctionSection(report: CorrectionReport, comparison: Correcti
 /** Qc as worked: the capacitors added and the leading loads already on the board; QL the reactors added. */
 function capacitanceWords(c: CorrectionReport['verification']['resonanceCapacitance']): string {
   const parts = [
-    ...(c.addedKvar > 0 ? [`${fixed(c.addedKvar, 1)} kvar added`] : []),
+    // Worked with every step in: fewer steps in put less capacitance on and raise the orders.
+    ...(c.addedKvar > 0 ? [`${fixed(c.addedKvar, 1)} kvar added, every step in (with fewer steps in, the orders lie higher)`] : []),
     ...(c.onBoardKvar > 0 ? [`${fixed(c.onBoardKvar, 1)} kvar of leading loads already on the board (${c.loadsOnBoard.join(', ')})`] : []),
   ];
   return `${parts.join(' + ')}${c.reactorKvar > 0 ? `; reactors added ${fixed(c.reactorKvar, 1)} kvar` : ''}`;
