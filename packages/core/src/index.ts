@@ -63,7 +63,7 @@ export { boardSchema } from './boardFile/boardFileSchema.js';
 export type { BoardValidation } from './boardFile/validateBoard.js';
 export { validateBoard, parseBoard } from './boardFile/validateBoard.js';
 export { parseBoardText } from './boardFile/parseBoardText.js';
-export { readWellFormedBoard } from './boardFile/boardFileRules.js';
+export { readWellFormedBoard, readWellFormedInstallation } from './boardFile/boardFileRules.js';
 export { readWellFormedCorrectionBoard } from './boardFile/wellFormedCorrectionBoard.js';
 export { readBoardText } from './board/readBoardText.js';
 export { readPlainBoardText, BOARD_TEXT_LIMITS } from './board/boardText.js';

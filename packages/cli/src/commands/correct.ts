@@ -1,5 +1,5 @@
 /** `trivar correct`: size, choose and verify power-factor correction for a board. */
-import { boardOfInstallation, meteringPointIssues, boardHasHarmonicData, installationHasHarmonicData, compareCorrections, compareInstallationCorrections, correctBoard, correctInstallation, InputError, installationBoardIndex, installationInService, isInstallationInput, normaliseBoard, readPlainBoardText, readWellFormedBoard, readWellFormedCorrectionBoard, type Board, type CorrectionComparison, type CorrectionReport } from '@trivar/core';
+import { boardOfInstallation, meteringPointIssues, boardHasHarmonicData, installationHasHarmonicData, compareCorrections, compareInstallationCorrections, correctBoard, correctInstallation, InputError, installationBoardIndex, installationInService, isInstallationInput, normaliseBoard, readPlainBoardText, readWellFormedBoard, readWellFormedCorrectionBoard, readWellFormedInstallation, type Board, type CorrectionComparison, type CorrectionReport } from '@trivar/core';
 import type { CliIo } from '../io.js';
 import { writeResult } from '../writeResult.js';
 import { renderCorrectionReport } from '../format/correctionReport.js';
@@ -58,7 +58,8 @@ function assertMeteringOption(board: Board, point: string | undefined, what: 'fi
 
 /** An installation file: the equipment on the board `--board` names (default: the main board), its effect on every board. */
 async function runCorrectInstallation(input: unknown, options: CorrectCommandOptions, io: CliIo): Promise<CorrectOutcome> {
-  const spec = (await import('./schemaChecks.js')).parseInstallation(input);
+  // The schemas are loaded only for an installation the well-formed shortcut steps aside from (a study section).
+  const spec = readWellFormedInstallation(input) ?? (await import('./schemaChecks.js')).parseInstallation(input);
   // The banks the file lists are in service; the one on the equipment's board, if any, is the study's to replace.
   const installation = installationInService(spec);
   // Checked before the study, so the error names the option, not the file's correction section.

@@ -1,5 +1,16 @@
 /** `trivar solve`: read a board or installation file, solve it, print the report or JSON. */
-import { isInstallationInput, normaliseBoard, readPlainBoardText, readWellFormedBoard, solveBoardModel, type BoardResult, type InstallationResult } from '@trivar/core';
+import {
+  installationInService,
+  isInstallationInput,
+  normaliseBoard,
+  readPlainBoardText,
+  readWellFormedBoard,
+  readWellFormedInstallation,
+  solveBoardModel,
+  solveInstallationModel,
+  type BoardResult,
+  type InstallationResult,
+} from '@trivar/core';
 import type { CliIo } from '../io.js';
 import { writeResult } from '../writeResult.js';
 import { escapeControlCharacters } from '../format/terminalText.js';
@@ -32,8 +43,9 @@ export async function runSolve(file: string, options: SolveCommandOptions, io: C
     if (collapse) throw collapse;
     return result;
   }
-  const { solveInstallation } = await import('./schemaChecks.js');
-  const result = solveInstallation(input, solveOptions);
+  // solveInstallation's steps for an installation file, with the schemas loaded only where the shortcut steps aside.
+  const wellFormed = readWellFormedInstallation(input);
+  const result = wellFormed ? solveInstallationModel(installationInService(wellFormed), solveOptions) : (await import('./schemaChecks.js')).solveInstallation(input, solveOptions);
   const names = result.boards.map((b) => b.name);
   const unknown = (options.board ?? []).filter((n) => !names.includes(n));
   if (unknown.length) throw unknownBoardError(unknown, names);

@@ -7,7 +7,7 @@
  *
  * Why: on a 1,000-load board the schema's per-load checks, and loading zod with every
  * study's schemas, were a large part of `trivar solve`'s time (see the README's figures).
- * Mirrors boardSchema.ts field by field, with the ranges and lists of boardRanges.ts;
+ * Its parts are also the installation file's (wellFormedInstallation.ts). Mirrors boardSchema.ts field by field, with the ranges and lists of boardRanges.ts;
  * test/property/wellFormedBoard.test.ts holds it to the schema on random and mutated boards.
  */
 import { firstOf, listOf, NOT_THIS_SHAPE, numberIn, oneOf, optional, required, strictObjectOf, textOf, trueOrFalse, wholeIn, type PlainShape } from '../_internal/plainShape.js';
@@ -76,7 +76,7 @@ const voltageNotation: PlainShape = (v) => {
   return read.ok ? { lineToLine: read.notation.lineToLineV, lineToNeutral: read.notation.lineToNeutralV, written: read.notation.text } : NOT_THIS_SHAPE;
 };
 
-const supply = strictObjectOf({
+export const supplyShape = strictObjectOf({
   system: required(oneOf(SYSTEMS)),
   voltage: required(
     firstOf(
@@ -98,7 +98,7 @@ const supply = strictObjectOf({
   openDelta: optional(strictObjectOf({ 'A-B': optional(winding), 'B-C': optional(winding), 'C-A': optional(winding) })),
 });
 
-const feeder = strictObjectOf({
+export const feederShape = strictObjectOf({
   line: optional(firstOf(conductor, byPhase(conductor))),
   neutral: optional(conductor),
   lengthM: optional(within(R.lengthM)),
@@ -113,10 +113,10 @@ const readableText =
     const text = textOf(1, maxCharacters)(v);
     return text !== NOT_THIS_SHAPE && NAME_VISIBLE.test(text as string) && NAME_WITHOUT_CONTROLS.test(text as string) ? text : NOT_THIS_SHAPE;
   };
-const nameText = readableText(NAME_MAX_CHARACTERS);
+export const nameText = readableText(NAME_MAX_CHARACTERS);
 /** boardSchema's circuit: readable text, or a whole number read as its text. */
 const circuitText = firstOf(readableText(CIRCUIT_MAX_CHARACTERS), (v) => (wholeIn(CIRCUIT_NUMBER.min, CIRCUIT_NUMBER.max)(v) === NOT_THIS_SHAPE ? NOT_THIS_SHAPE : String(v)));
-const load = strictObjectOf({
+export const loadShape = strictObjectOf({
   name: required(nameText),
   circuit: optional(circuitText),
   breakerA: optional(within(R.ratingA)),
@@ -136,21 +136,24 @@ const load = strictObjectOf({
 });
 
 const percentBand = numberIn(VOLTAGE_LIMIT_PERCENT.min, VOLTAGE_LIMIT_PERCENT.max);
-const conventions = strictObjectOf({
+export const voltageLimitsShape = firstOf(oneOf(VOLTAGE_LIMIT_PRESET_NAMES), strictObjectOf({ underPercent: required(percentBand), overPercent: required(percentBand) }));
+export const conventionsShape = strictObjectOf({
   region: optional(oneOf(REGIONS)),
   phaseNames: optional(oneOf(PHASE_NAMINGS)),
-  voltageLimits: optional(firstOf(oneOf(VOLTAGE_LIMIT_PRESET_NAMES), strictObjectOf({ underPercent: required(percentBand), overPercent: required(percentBand) }))),
+  voltageLimits: optional(voltageLimitsShape),
 });
+/** The board file's `studies:` of the board's own (no study section). */
+export const ownStudiesShape = strictObjectOf({ openNeutral: optional(trueOrFalse) });
 
 const board = strictObjectOf({
   $schema: optional(textOf()),
   name: optional(nameText),
   note: optional(textOf()),
-  supply: required(supply),
-  conventions: optional(conventions),
-  feeder: optional(feeder),
-  loads: required(listOf(load, 1)),
-  studies: optional(strictObjectOf({ openNeutral: optional(trueOrFalse) })),
+  supply: required(supplyShape),
+  conventions: optional(conventionsShape),
+  feeder: optional(feederShape),
+  loads: required(listOf(loadShape, 1)),
+  studies: optional(ownStudiesShape),
 });
 
 /**

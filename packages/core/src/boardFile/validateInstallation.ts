@@ -3,14 +3,11 @@
  * installations): the whole file's schema, then the tree, board and study rules.
  */
 import { InputError } from '../errors.js';
-import { BOARD_RULES } from '../board/boardRules.js';
-import { installationRulesWith } from '../board/installationRules.js';
 import { oneBoardInstallation, validateInstallationWith, type InstallationFileChecks, type InstallationValidationOf } from '../board/validateInstallationWith.js';
 import { isInstallationInput } from '../board/installationInput.js';
 import { installationSchema, type BoardSpec, type InstallationSpec } from './boardFileSchema.js';
 import { BOARD_FILE_CHECKS } from './validateBoard.js';
-import { STUDY_BOARD_RULES } from './boardFileRules.js';
-import { ruleInstallationBankRatings } from '../harmonics/harmonicsRules.js';
+import { INSTALLATION_FILE_RULES, readWellFormedInstallation } from './boardFileRules.js';
 import type { HarmonicsSectionSpec, InstallationHarmonicsSectionSpec } from '../harmonics/harmonicsSpec.js';
 
 /** A board file's `harmonics:` section as the installation's: its bank on the one board. */
@@ -21,7 +18,7 @@ function harmonicsOfBoard(name: string, section: HarmonicsSectionSpec): Installa
 
 const INSTALLATION_FILE_CHECKS: InstallationFileChecks<InstallationSpec, BoardSpec> = {
   schema: installationSchema,
-  rules: [...installationRulesWith<InstallationSpec>([...BOARD_RULES, ...STUDY_BOARD_RULES]), ruleInstallationBankRatings],
+  rules: INSTALLATION_FILE_RULES,
   board: BOARD_FILE_CHECKS,
   // The board's correction and harmonic studies carry over (its bank on its one board); the other sections are one-board studies.
   boardAsInstallation: (board) => ({
@@ -38,7 +35,9 @@ export type InstallationValidation = InstallationValidationOf<InstallationSpec>;
  * accepted too and becomes the installation with that one board.
  */
 export function validateInstallation(input: unknown): InstallationValidation {
-  return validateInstallationWith(INSTALLATION_FILE_CHECKS, input);
+  // Most installation files are well formed: the shortcut answers those without the schemas.
+  const installation = isInstallationInput(input) ? readWellFormedInstallation(input) : undefined;
+  return installation ? { ok: true, installation } : validateInstallationWith(INSTALLATION_FILE_CHECKS, input);
 }
 
 /** @throws {InputError} listing every problem, each with its field path. */
