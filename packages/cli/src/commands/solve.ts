@@ -5,6 +5,7 @@ import {
   normaliseBoard,
   readPlainBoardText,
   readWellFormedBoard,
+  readWellFormedCorrectionBoard,
   readWellFormedInstallation,
   solveBoardModel,
   solveInstallationModel,
@@ -36,7 +37,8 @@ export async function runSolve(file: string, options: SolveCommandOptions, io: C
   if (!isInstallationInput(input)) {
     if (options.board?.length || options.allBoards) throw boardOptionOnBoardFile('--board and --all-boards');
     // solveBoard's steps, with the schemas loaded only for a board the shortcut steps aside from.
-    const spec = readWellFormedBoard(input) ?? (await import('./schemaChecks.js')).parseBoard(input);
+    // A board with a correction section (solve leaves it to `trivar correct`) builds that section's schema only.
+    const spec = readWellFormedBoard(input) ?? readWellFormedCorrectionBoard(input) ?? (await import('./schemaChecks.js')).parseBoard(input);
     const result = solveBoardModel(normaliseBoard(spec), solveOptions);
     writeResult(io, result, options.json, renderSolveReport);
     const collapse = collapseOf(result);
