@@ -192,6 +192,9 @@ console.log('4. CLI against a bare `node -e ""` (median wall time, interleaved)'
   const cases: [string, string[]][] = [
     ['trivar solve (1,000-load board, JSON)', [cli, 'solve', big]],
     ['trivar solve (1,000-load board, YAML)', [cli, 'solve', bigYaml]],
+    // Installation files: read without the schemas where they hold no study section (wellFormedInstallation.ts).
+    ['trivar solve maple-court-riser', [cli, 'solve', 'examples/maple-court-riser.yaml']],
+    ['trivar solve tannery-lane-works', [cli, 'solve', 'examples/tannery-lane-works.yaml']],
     ...['corner-bakery', 'harbour-cottages', 'hillside-workshop', 'riverside-cold-store'].map(
       (name): [string, string[]] => [`trivar correct ${name}`, [cli, 'correct', `examples/${name}.yaml`]],
     ),
@@ -226,6 +229,8 @@ console.log('4. CLI against a bare `node -e ""` (median wall time, interleaved)'
     console.log(`     (bare node -e "" with this shell's NODE_EXTRA_CA_CERTS: ${median(bareWithCerts).toFixed(1)} ms, not the baseline)`);
   cases.forEach(([label], k) => {
     const m = median(times[k]!);
-    console.log(`     ${label.padEnd(40)} ${m.toFixed(1)} ms   ${(m / median(bare)).toFixed(2)}x   (goal <= 3x)`);
+    // The issue's goals are on the 1,000-load board and the corrections; the installations are shown for reference.
+    const goal = label.includes('maple-court') || label.includes('tannery') ? '' : '   (goal <= 3x)';
+    console.log(`     ${label.padEnd(40)} ${m.toFixed(1)} ms   ${(m / median(bare)).toFixed(2)}x${goal}`);
   });
 }
