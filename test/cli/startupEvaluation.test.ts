@@ -1,6 +1,6 @@
 /**
- * The built CLI evaluates only what a command runs: `trivar solve` and `trivar --version` never build
- * zod's schemas, yaml's reader or the correction study, and `trivar correct` builds the harmonic study
+ * The built CLI evaluates only what a command runs: `trivar solve` on a well-formed board or installation
+ * and `trivar --version` never build zod's schemas, yaml's reader or the correction study, and `trivar correct` builds the harmonic study
  * only for a board with harmonic data (start-up time, see DEVELOPERS.md "CLI bundle"). The bundle is one
  * file, so this is checked on what V8 ran: the CLI runs with NODE_V8_COVERAGE, and a marker string of a
  * module counts as evaluated when the innermost code range around it ran.
@@ -62,6 +62,13 @@ describe('what the CLI evaluates', () => {
   it('solve on a well-formed board: no zod, no yaml, no correction study', () => {
     const ran = runCovered(['solve', 'examples/corner-bakery.yaml']);
     for (const marker of [ZOD, BOARD_SCHEMA, CORRECTION_SCHEMA, YAML, HARMONIC_CORRECTION]) expect(ran(marker), marker).toBe(false);
+  });
+  it('solve on a well-formed installation: no zod; on a board with a correction section: that section\'s schema only', () => {
+    const installation = runCovered(['solve', 'examples/maple-court-riser.yaml']);
+    for (const marker of [ZOD, BOARD_SCHEMA, CORRECTION_SCHEMA, YAML, HARMONIC_CORRECTION]) expect(installation(marker), marker).toBe(false);
+    const withCorrection = runCovered(['solve', 'examples/riverside-cold-store.yaml']);
+    for (const marker of [ZOD, CORRECTION_SCHEMA]) expect(withCorrection(marker), marker).toBe(true);
+    for (const marker of [BOARD_SCHEMA, YAML, HARMONIC_CORRECTION]) expect(withCorrection(marker), marker).toBe(false);
   });
   it('solve reads YAML outside the plain subset with yaml, which it evaluates then', () => {
     const text = readFileSync(`${ROOT}examples/corner-bakery.yaml`, 'utf8').replace(/^supply:/m, 'supply: &mains');

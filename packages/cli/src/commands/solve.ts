@@ -5,7 +5,6 @@ import {
   normaliseBoard,
   readPlainBoardText,
   readWellFormedBoard,
-  readWellFormedCorrectionBoard,
   readWellFormedInstallation,
   solveBoardModel,
   solveInstallationModel,
@@ -29,6 +28,8 @@ export interface SolveCommandOptions {
   readonly allBoards?: boolean;
 }
 
+const hasCorrectionSection = (input: unknown): boolean => input !== null && typeof input === 'object' && Object.hasOwn(input, 'correction');
+
 export async function runSolve(file: string, options: SolveCommandOptions, io: CliIo): Promise<BoardResult | InstallationResult> {
   const text = await io.readSource(file, options.maxInputMb === undefined ? {} : { maxInputMB: options.maxInputMb });
   // JSON and plain YAML are read without yaml; only other YAML loads it (and words any syntax error).
@@ -38,7 +39,10 @@ export async function runSolve(file: string, options: SolveCommandOptions, io: C
     if (options.board?.length || options.allBoards) throw boardOptionOnBoardFile('--board and --all-boards');
     // solveBoard's steps, with the schemas loaded only for a board the shortcut steps aside from.
     // A board with a correction section (solve leaves it to `trivar correct`) builds that section's schema only.
-    const spec = readWellFormedBoard(input) ?? readWellFormedCorrectionBoard(input) ?? (await import('./schemaChecks.js')).parseBoard(input);
+    const spec =
+      readWellFormedBoard(input) ??
+      (hasCorrectionSection(input) ? (await import('./correctionShortcut.js')).readWellFormedCorrectionBoard(input) : undefined) ??
+      (await import('./schemaChecks.js')).parseBoard(input);
     const result = solveBoardModel(normaliseBoard(spec), solveOptions);
     writeResult(io, result, options.json, renderSolveReport);
     const collapse = collapseOf(result);
