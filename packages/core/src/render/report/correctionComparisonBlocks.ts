@@ -20,6 +20,7 @@ const VERDICT_WORDS: Readonly<Record<string, string>> = {
   'misses-target-with-available-units': 'misses it with the available units',
   infeasible: 'cannot reach it',
   'no-suitable-units': 'no unit suits the voltage',
+  'nothing-to-build': 'nothing to build',
 };
 
 const capitalised = (text: string) => text.charAt(0).toUpperCase() + text.slice(1);
