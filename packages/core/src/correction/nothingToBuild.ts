@@ -77,7 +77,8 @@ export function smallestUnitsOn(selection: BankSelection, sized: SizedEquipment,
     const branch = `${need.phase}-N`;
     const s = selection.selections.find((x) => x.branch === branch);
     const b = sized.branches.find((x) => x.branch === branch);
-    if (!s || !b) return [];
+    // Only where the sizing put a capacitor: a reactor's or an empty branch's window holds no unit at all.
+    if (!s || !b || b.element !== 'capacitor') return [];
     const suits = units.filter((u) => u.kind === 'single-phase' && u.ratedV >= s.requiredRatedV * (1 - 1e-12) && (s.nominalV / u.ratedV) ** 2 * (hz / u.ratedHz) >= floor - 1e-12);
     if (!suits.length) return [];
     const farad = (u: CatalogueUnit) => (u.ratedKvar * 1000) / (2 * Math.PI * u.ratedHz * u.ratedV ** 2);
