@@ -290,7 +290,7 @@ export const nothingToBuildWords = {
       );
       if (n.neededKvar < w.minStepKvar)
         parts.push(
-          `that is below the ${kvarText(w.minStepKvar)} kvar a step of the bank may have at least (bank.minStepKvar)${w.minStepKvar > n.kvar ? `, and a step that size would make line ${n.line} lead: its whole lagging demand is ${kvarText(n.kvar)} kvar` : ''}`,
+          `that is below the least step the bank may switch, ${kvarText(w.minStepKvar)} kvar (bank.minStepKvar)${w.minStepKvar > n.kvar ? `, and a step that size would make line ${n.line} lead: its whole lagging demand is ${kvarText(n.kvar)} kvar` : ''}`,
         );
     }
     for (const u of w.smallestUnits) {
@@ -336,7 +336,7 @@ export const nothingToBuildWords = {
   advice: (lines: readonly { readonly line: string; readonly loads: readonly { readonly name: string; readonly kvar: number }[] }[], boardKvar: number, boardPf: number | null) => {
     const at = lines.flatMap((l) => l.loads.map((x) => `${quoteText(x.name)} (${kvarText(x.kvar)} kvar lagging, line ${l.line})`));
     const unique = [...new Set(at)];
-    return `nothing is to be built at the board. Either correct at the equipment — a capacitor at the terminals of ${unique.length ? listWords(unique) : 'the loads drawing the lagging current'}, switched with it; beside a motor keep it below the motor's no-load reactive power, or the motor can self-excite when it is switched off (common practice) — or accept the PF as it is: the board draws ${kvarText(boardKvar)} kvar${boardPf === null ? '' : ` at PF ${f3(boardPf)}`}, which matters only where the supply charges for reactive energy or a conductor is near its rating`;
+    return `nothing is to be built at the board. Either correct at the equipment — a capacitor at the terminals of ${unique.length ? listWords(unique) : 'the loads drawing the lagging current'}, switched with it; beside a motor keep it below the motor's no-load reactive power, or the motor can self-excite when it is switched off (common practice) — or accept the PF as it is: the board draws ${kvarText(boardKvar)} kvar${boardPf === null ? '' : ` (vector PF ${f3(boardPf)})`}, which matters only where the supply charges for reactive energy or a conductor is near its rating`;
   },
 };
 
