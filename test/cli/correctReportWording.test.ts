@@ -202,14 +202,19 @@ describe('correct report wording', () => {
   });
 
   it('a compensator whose unit-built capacitors miss beside exact reactors says why, and what re-sizing the reactors did', () => {
-    // A potter's workshop (invented) with every circuit on line B: wheel, kiln controller, pug mill.
+    // A potter's workshop (invented) with most circuits on line B: wheel, kiln controller, pug mill, and a
+    // small three-phase glaze mixer. (With every circuit on B the build from units would load idle lines A
+    // and C and lower PF1+: it is withheld, see the next test.)
     const board = behindTransformer('pottery', [
       { name: 'wheel', connection: 'B-N', kW: 2.7, pf: 0.93 },
       { name: 'kiln controller', connection: 'B-N', kW: 4.4, pf: 0.89 },
       { name: 'pug mill', connection: 'B-N', kW: 2, pf: 0.79 },
+      { name: 'glaze mixer', connection: 'ABC-star', kW: 1, pf: 0.85 },
     ]);
     const r = correctBoard(board, { arrangement: 'balancing-compensator', target: { pf: 0.95 } });
     expect(r.status).toBe('misses-target-with-available-units');
+    // The build offered misses, but it does not lower the PF it is judged on.
+    expect(r.verification.powerFactor.positiveSequence!.after).toBeGreaterThan(r.verification.powerFactor.positiveSequence!.before);
     // Rounded up did no better, so the cheaper rounding down is built.
     expect(r.roundingBesideReactors).toMatchObject({ used: 'down', verdictDown: 'misses', verdictUp: 'misses' });
     const sized = r.sizing.arrangement === 'balancing-compensator' ? r.sizing.ideal.branches : [];
@@ -231,6 +236,28 @@ describe('correct report wording', () => {
       expect(reason).toContain(`${x.branch} ${x.sizedKvar.toFixed(2)} → ${x.resizedKvar.toFixed(2)} kvar`);
     expect(reason).not.toContain('0.00 → 0.00');
     expect(reason).toContain('it still misses the target');
+  });
+
+  it('a compensator build from units that lowers PF1+ and loads idle lines is withheld, with its figures in words', () => {
+    // The same workshop with every circuit on line B: lines A and C carry nothing before.
+    const board = behindTransformer('pottery', [
+      { name: 'wheel', connection: 'B-N', kW: 2.7, pf: 0.93 },
+      { name: 'kiln controller', connection: 'B-N', kW: 4.4, pf: 0.89 },
+      { name: 'pug mill', connection: 'B-N', kW: 2, pf: 0.79 },
+    ]);
+    const r = correctBoard(board, { arrangement: 'balancing-compensator', target: { pf: 0.95 } });
+    expect(r.status).toBe('nothing-to-build');
+    expect(r.roundingBesideReactors).toMatchObject({ verdictDown: 'withheld', verdictUp: 'withheld' });
+    const w = r.nothingToBuild!.withheld!;
+    expect(w.reasons).toEqual(['lowers-target-pf', 'loads-idle-line']);
+    expect(w.targetPfWithBuild!).toBeLessThan(w.targetPfBefore!);
+    expect(w.idleLinesLoaded.map((l) => l.phase)).toEqual(['A', 'C']);
+    expect(r.reasons.join(' ')).toContain(`lower the positive-sequence PF from ${w.targetPfBefore!.toFixed(3)} to ${w.targetPfWithBuild!.toFixed(3)}`);
+    expect(r.reasons.join(' ')).toContain(`load line A, which carried nothing, with ${w.idleLinesLoaded[0]!.currentA.toFixed(1)} A`);
+    // Line B's need by hand, Q = P·(tan φ1 − tan φ2), from the line's own figures.
+    const b = r.nothingToBuild!.needs.find((n) => n.phase === 'B')!;
+    expect(b.neededKvar).toBeCloseTo(b.kW * (b.kvar / b.kW - Math.tan(Math.acos(0.95))), 9);
+    expect(r.reasons.join(' ')).toContain(`line B needs ${b.neededKvar.toFixed(2)} kvar`);
   });
 
   it('the HTML report words a negative loss saving as added losses', () => {

@@ -70,7 +70,9 @@ describe('correction laws over random lagging boards', () => {
         const report = correctBoard(board, { arrangement: 'star-bank', target: { pf }, lightLoad: { fraction: 0.3 } });
         expect(report.sizing.status).not.toBe('infeasible');
         // Hardware may be too coarse for a tiny board; then it says so rather than making a line lead.
-        expect(['meets-target', 'meets-target-at-nominal-capacitance', 'already-meets-target', 'misses-target-with-available-units', 'no-suitable-units']).toContain(report.status);
+        // (nothing-to-build: not even the smallest unit or step fits the need; it says why.)
+        expect(['meets-target', 'meets-target-at-nominal-capacitance', 'already-meets-target', 'misses-target-with-available-units', 'no-suitable-units', 'nothing-to-build']).toContain(report.status);
+        if (report.status === 'nothing-to-build') expect(report.nothingToBuild!.why).toMatch(/needs \d+\.\d+ kvar/);
         if (report.status === 'no-suitable-units') expect(report.reasons.join(' ')).toMatch(/no unit in the/);
         if (report.status === 'misses-target-with-available-units') expect(report.verification.check.leadingLines).toEqual([]);
         assertReportLaws(report);

@@ -24,7 +24,7 @@ export function outcomeMeetsTarget(outcome: CorrectOutcome): boolean {
   if (outcome.kind === 'comparison') return outcome.comparison.meetsTarget;
   const s = outcome.report.status;
   if (outcome.report.warnings.some((w) => w.code === 'harmonic-check-failed')) return false;
-  return s !== 'infeasible' && s !== 'misses-target-with-available-units' && s !== 'no-suitable-units';
+  return s !== 'infeasible' && s !== 'misses-target-with-available-units' && s !== 'no-suitable-units' && s !== 'nothing-to-build';
 }
 
 /** The study's input errors restated at their place in the file (`correction.target.pf`). */

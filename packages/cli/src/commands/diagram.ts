@@ -93,6 +93,7 @@ const needsStudy = (view: DiagramView) =>
 /** An "after" with no bank as built would draw equipment no catalogue unit makes: refused, saying why. */
 function assertDrawable(study: FileCorrection, option: string): void {
   const r = study.report;
+  if (r.status === 'nothing-to-build') throw new UsageError(`${option}: the correction study has nothing to build for this board (${r.nothingToBuild?.why ?? r.summary}), so there is no correction to draw (trivar correct shows why)`);
   if (r.status !== 'no-suitable-units') return;
   const name = study.recommended ?? arrangementNames(r.verification.before.board.system, r.verification.before.conventions.region)[r.arrangement];
   throw new UsageError(

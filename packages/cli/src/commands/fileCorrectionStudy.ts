@@ -94,6 +94,7 @@ export function switchedBankOf(c: FileCorrection, option: string): SwitchingFrom
   const accepted = `the simulator switches capacitor steps that are three-phase, from a line to the neutral, or across two lines (correction.arrangement: star-bank${threePhase ? ', or delta-bank' : ''}); or use --bank for a bank sized from the profile`;
   const selection = r.selection;
   if (r.status === 'already-meets-target') throw new UsageError(`${option}: the board already meets the correction target, so ${what(c)} adds nothing to simulate`);
+  if (r.status === 'nothing-to-build') throw new UsageError(`${option}: the correction study has nothing to build for this board (${r.nothingToBuild?.why ?? r.summary}), so there is no bank to simulate; ${accepted}`);
   if (r.status === 'no-suitable-units' || selection?.unbuildable)
     throw new UsageError(`${option}: no unit of the catalogue suits ${what(c)}${selection?.unbuildable ? ` (${selection.unbuildable.message})` : ''}, so there is no bank as built to simulate (trivar correct shows the sizing); ${accepted}`);
   const reactors = r.verification.branches.filter((b) => b.element === 'reactor');

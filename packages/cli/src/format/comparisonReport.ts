@@ -40,6 +40,7 @@ const VERDICT: Record<string, string> = {
   'misses-target-with-available-units': 'misses',
   infeasible: 'not reachable',
   'no-suitable-units': 'no units fit',
+  'nothing-to-build': 'nothing to build',
 };
 
 /** Meets the target while it overloads what feeds the board (see compareCorrections' rule). */
@@ -134,6 +135,10 @@ export function renderComparisonReport(c: CorrectionComparison): string {
   );
   parts.push(section('Recommendation') + wrapText(c.why, '  ', '    ') + '\n' + wrapText(`(rule: ${c.rule})`, '  ', '    '));
   const chosen = c.outcomes.find((o) => o.arrangement === c.recommended)?.report;
-  if (chosen) parts.push(section(`The recommended ${fullNames[chosen.arrangement]} in full`) + '\n' + renderCorrectionReport(chosen).trimEnd());
+  // Nothing to build is no recommendation of equipment: the study behind the verdict is shown, not "the recommended" bank.
+  if (chosen)
+    parts.push(
+      section(chosen.status === 'nothing-to-build' ? `Why nothing is built: the ${fullNames[chosen.arrangement]} studied` : `The recommended ${fullNames[chosen.arrangement]} in full`) + '\n' + renderCorrectionReport(chosen).trimEnd(),
+    );
   return `${parts.join('\n')}\n`;
 }

@@ -13,6 +13,7 @@ const STATUS_WORDS: Record<string, string> = {
   'misses-target-with-available-units': 'MISSES THE TARGET with the available units',
   'no-suitable-units': 'NO SUITABLE UNITS for this arrangement',
   infeasible: 'TARGET NOT REACHABLE with this arrangement',
+  'nothing-to-build': 'NOTHING TO BUILD',
 };
 
 /** The verdict in capitals: a build that meets the target while it overloads what it is connected to says both. */
@@ -517,6 +518,46 @@ export function renderNothingToAdd(r: CorrectionReport, studied: string): string
   return `${parts.join('\n')}\n`;
 }
 
+/** Each line's need against the target, Q = P·(tan φ1 − tan φ2): the figures a study with nothing to build rests on. */
+function needsTable(r: CorrectionReport, label: PhaseLabeller): string {
+  const needs = r.nothingToBuild?.needs ?? [];
+  return renderTable(
+    [
+      { header: 'line', align: 'left' },
+      { header: 'kW' },
+      { header: 'kvar' },
+      { header: 'PF' },
+      { header: 'PF wanted' },
+      { header: 'kvar to add' },
+    ],
+    needs.map((n) => [label(n.phase), fixed(n.kW, 2), fixed(n.kvar, 2), pfFigure(n.pfBefore), fixed(n.pfTarget, 3), n.pfBefore === null ? '-' : fixed(n.neededKvar, 2)]),
+  ) + `\n${wrapText(`kvar to add = P·(tan φ1 − tan φ2) at the solved voltage; the least step a bank may switch is ${fixed(r.nothingToBuild?.minStepKvar ?? 0, 2)} kvar (bank.minStepKvar)`, '  ', '    ')}`;
+}
+
+/**
+ * The report of a study with nothing to build: the verdict, why in figures (each line's need, the
+ * smallest step and unit, a build withheld because it made things worse) and what to do instead. No
+ * sizing, bank, steps, CT or controller: there is no bank.
+ */
+export function renderNothingToBuild(r: CorrectionReport): string {
+  const v = r.verification;
+  const label = labelsOf(v);
+  const parts = [
+    headerLines(v.before).slice(0, 2).join('\n'),
+    wrapText(`correction: ${arrangementDescriptions(v.before.board.system, v.before.conventions.region)[r.arrangement]}`, '', '  '),
+    wrapText(`target: ${targetWords(r)}`, '', '  '),
+    '',
+    wrapText(`${STATUS_WORDS['nothing-to-build']} — ${r.summary}`, '', '  '),
+    ...r.reasons.map((x) => wrapText(x, '  - ', '    ')),
+  ];
+  parts.push(section('What each line needs') + needsTable(r, label));
+  if (r.nothingToBuild) parts.push(section('What to do') + wrapText(r.nothingToBuild.advice.charAt(0).toUpperCase() + r.nothingToBuild.advice.slice(1), '  ', '    '));
+  if (v.metering) parts.push(meteringSection(v.metering, lineTableNow(v.metering, label)));
+  parts.push(section('Lines as solved, without equipment') + lineTableNow(v, label));
+  parts.push(section('Cautions') + r.cautions.map((c) => wrapText(c, '  * ', '    ')).join('\n'));
+  return `${parts.join('\n')}\n`;
+}
+
 /** Lines that led before correction are held to another rule (the verdict says why): the target line names them. */
 const exemptNote = (r: CorrectionReport): string => {
   const lines = exemptLeadingLines(r.verification.check).map(labelsOf(r.verification));
@@ -528,6 +569,7 @@ const targetWords = (r: CorrectionReport): string =>
 
 export function renderCorrectionReport(r: CorrectionReport): string {
   if (r.status === 'already-meets-target') return renderNothingToAdd(r, `a ${arrangementNames(r.verification.before.board.system, r.verification.before.conventions.region)[r.arrangement]}`);
+  if (r.status === 'nothing-to-build') return renderNothingToBuild(r);
   const v = r.verification;
   const label = labelsOf(v);
   const parts = [

@@ -130,9 +130,12 @@ export function renderInstallationEffect(e: InstallationEffect): string {
   );
 }
 
+/** Nothing added (the board meets the target, or there is nothing to build): no effect to show. */
+const addsNothing = (status: string) => status === 'already-meets-target' || status === 'nothing-to-build';
+
 // With nothing to add, every board's before → after would read "x→x": the board report says it once.
 export function renderInstallationCorrection(c: InstallationCorrection): string {
-  const effect = c.report.status === 'already-meets-target' ? '' : renderInstallationEffect(c.effect);
+  const effect = addsNothing(c.report.status) ? '' : renderInstallationEffect(c.effect);
   return `${placeLines(c)}\n${renderCorrectionReport(c.report)}${effect}`;
 }
 
@@ -140,7 +143,7 @@ export function renderInstallationCorrection(c: InstallationCorrection): string 
 function recommendedEffect(c: InstallationComparison): string {
   const recommended = c.comparison.outcomes.find((o) => o.arrangement === c.comparison.recommended)?.report;
   const compared = comparedBoard(c.comparison);
-  return c.effect && recommended && recommended.status !== 'already-meets-target'
+  return c.effect && recommended && !addsNothing(recommended.status)
     ? `\nThe recommended ${arrangementNames(compared.system, compared.region)[recommended.arrangement]} across the installation\n${renderInstallationEffect(c.effect)}`
     : '';
 }
@@ -167,7 +170,7 @@ function withoutBankLines(board: string, w: ResonanceWithoutBank | null): string
 }
 
 export function renderInstallationCorrectionWithHarmonics(c: InstallationHarmonicCorrection): string {
-  return `${placeLines(c)}\n${renderCorrectionReport(c.report)}${renderCorrectionHarmonics(c.report.harmonics, INSTALLATION_DETAILS)}${withoutBankLines(c.board, c.resonanceWithoutBank)}${c.report.status === 'already-meets-target' ? '' : renderInstallationEffect(c.effect)}`;
+  return `${placeLines(c)}\n${renderCorrectionReport(c.report)}${renderCorrectionHarmonics(c.report.harmonics, INSTALLATION_DETAILS)}${withoutBankLines(c.board, c.resonanceWithoutBank)}${addsNothing(c.report.status) ? '' : renderInstallationEffect(c.effect)}`;
 }
 
 export function renderInstallationComparisonWithHarmonics(c: InstallationHarmonicComparison): string {

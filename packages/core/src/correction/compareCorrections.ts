@@ -126,6 +126,8 @@ const STATUS_RANK: Record<CorrectionStatus, number> = {
   'misses-target-with-available-units': 2,
   infeasible: 3,
   'no-suitable-units': 4,
+  // Nothing built: after any build that is made and misses, before an arrangement that cannot reach the target.
+  'nothing-to-build': 2.5,
 };
 
 /** Where a build that meets the target but overloads a conductor or the supply ranks: after every one that meets it without, before a miss. */
@@ -191,7 +193,7 @@ export function recommendArrangement(outcomes: readonly ArrangementOutcome[], am
     names[chosen.arrangement],
     chosen.report.status,
     chosen.figures,
-    others.map((o) => ({ name: names[o.arrangement], status: o.report.status, cost: o.figures.cost, lossesKW: o.figures.lossesKW, overloads: overloads(o) })),
+    others.map((o) => ({ name: names[o.arrangement], status: o.report.status, cost: o.figures.cost, lossesKW: o.figures.lossesKW, overloads: overloads(o), withheld: o.report.nothingToBuild?.withheldWords ?? null })),
     meetsTarget && near.length > 1,
   );
   // A verdict never hides that an arrangement makes the balance notably worse (see balanceWorsening).
@@ -204,7 +206,9 @@ export function recommendArrangement(outcomes: readonly ArrangementOutcome[], am
   const overloaded = [chosen, ...others].flatMap((o) => (overloads(o) ? [comparisonWording.overloads(names[o.arrangement], o === chosen, o.report.verification.overloadsCaused.map((x) => x.message))] : []));
   // A board its own capacitors make lead is told to deal with them first (the warning solve gives it).
   const ownLead = chosen.report.verification.before.warnings.find((w) => w.code === 'line-leading');
-  const notes = [...(ownLead ? [comparisonWording.ownCapacitorsLead(ownLead.message)] : []), ...overloaded, ...worse];
+  // Nothing to build: why, in the figures of each line's need, and what to do instead.
+  const nothing = chosen.report.nothingToBuild;
+  const notes = [...(nothing ? [nothing.why, nothing.advice] : []), ...(ownLead ? [comparisonWording.ownCapacitorsLead(ownLead.message)] : []), ...overloaded, ...worse];
   const whyAll = notes.length ? `${why}; ${notes.join('; ')}` : why;
   return { recommended: chosen.arrangement, meetsTarget, why: whyAll, rule: comparisonWording.rule };
 }

@@ -22,9 +22,12 @@ import { sizeBalancingCompensator } from './sizeBalancingCompensator.js';
 import { defaultPractice, selectBankUnitsPreferring, type BuildPreference } from './selectBankUnits.js';
 import { verifyCorrection, type VerifyCorrectionOptions } from './verifyCorrection.js';
 import { scaleBoardLoads } from './scaleBoardLoads.js';
-import type { BankSelection, BankSizing, BuildVerdict, CompensatorSizing, CorrectionReport, CorrectionStatus, CorrectionVerification, CorrectionWarning, FewerBranchesBuild, LineComparison, RoundingBesideReactors, SizedEquipment } from './correctionResult.js';
+import type { BankSelection, BankSizing, BuildVerdict, CompensatorSizing, CorrectionReport, CorrectionStatus, CorrectionVerification, CorrectionWarning, FewerBranchesBuild, LineComparison, NothingToBuild, RoundingBesideReactors, SizedEquipment, WithheldBuild } from './correctionResult.js';
+import { nothingToBuildOf, withheldBuildOf } from './nothingToBuild.js';
+import { catalogueUnitOf, TYPICAL_CATALOGUES } from './unitCatalogues.js';
+import type { TargetDefinition } from './correctionSpec.js';
 import { withCtReading, type CtReading } from './controllerSettings.js';
-import { arrangementNames, correctionCautions, exemptLeadingLines, exemptLeadingWords, infeasibleReason, lostNeutralCaution, lostNeutralUnequal, MODEL_CAUTION, meteringWarning, reportSummary, warningText } from './correctionWording.js';
+import { arrangementNames, correctionCautions, nothingToBuildCautions, exemptLeadingLines, exemptLeadingWords, infeasibleReason, lostNeutralCaution, lostNeutralUnequal, MODEL_CAUTION, meteringWarning, reportSummary, warningText } from './correctionWording.js';
 import { definedOnly } from './_internal/optionSchemas.js';
 import { assertViableBoard } from '../analysis/viableOperatingPoint.js';
 import { CORRECTION_DEFAULTS, toleranceFractions } from './correctionDefaults.js';
@@ -62,7 +65,16 @@ function sizeArrangement(board: Board, spec: CorrectionSpec & { arrangement: Arr
 }
 
 /** Verdicts of a build from units, best first. */
-const BUILD_VERDICT_RANK: Readonly<Record<BuildVerdict, number>> = { meets: 0, 'meets-at-nominal': 1, misses: 2, 'no-units': 3 };
+const BUILD_VERDICT_RANK: Readonly<Record<BuildVerdict, number>> = { meets: 0, 'meets-at-nominal': 1, misses: 2, withheld: 3, 'no-units': 4 };
+
+/** How the withheld-build wording names the PF a target is defined on. */
+const DEFINITION_WORDS: Readonly<Record<TargetDefinition, string>> = {
+  'per-line': 'lowest line PF',
+  effective: 'effective PF (IEEE 1459)',
+  vector: 'vector PF',
+  arithmetic: 'arithmetic PF',
+  'positive-sequence': 'positive-sequence PF',
+};
 
 /**
  * The re-solve's warnings of a limit a build passes beside the target, what makes one of two candidate builds
@@ -252,6 +264,8 @@ export function correctBoard(board: Board, spec: unknown): CorrectionReport {
     readonly cost: number | null;
     /** A cheaper build the re-solve proved worse and this one replaced, said in the warnings. */
     readonly passedOver?: CorrectionWarning;
+    /** Verdict `withheld`: what the build would have done, why it is not offered. */
+    readonly withheld: WithheldBuild | null;
   }
   const buildOf = (sized: SizedEquipment, selection: BankSelection | null): Build => {
     // Built with reactors, a compensator gets its reactors sized again beside the capacitors as built
@@ -268,15 +282,21 @@ export function correctBoard(board: Board, spec: unknown): CorrectionReport {
         : null;
     const recommended = sizing.status === 'already-meets-target' ? [] : refit?.used ? refit.equipment : (selection?.equipment ?? sized.equipment);
     const verification = verifyCorrection(board, verifyOptions(recommended));
-    const verdict: BuildVerdict = selection?.unbuildable
+    const judged: BuildVerdict = selection?.unbuildable
       ? 'no-units'
       : !verification.check.met || (sizing.arrangement === 'balancing-compensator' && !judgeBalance(verification.after, sizing.balance).met)
       ? 'misses'
       : !verification.tolerance.low.check.met || verification.tolerance.high.check.leadingLines.length > 0
       ? 'meets-at-nominal'
       : 'meets';
-    const cost = selection?.unbuildable ? null : (selection?.cost.value ?? 0) + CORRECTION_DEFAULTS.reactorCostFactor * reactorKvarOf(recommended);
-    return { sized, selection, refit, recommended, verification, verdict, cost };
+    const reactorKvar = reactorKvarOf(recommended);
+    // A compensator's reactors balance what its capacitors correct: with no capacitor built, they are not built either.
+    const reactorsAlone = sizing.arrangement === 'balancing-compensator' && selection !== null && !selection.unbuildable && selection.units === 0 && reactorKvar >= 0.005;
+    const withheld =
+      judged === 'no-units' ? null : withheldBuildOf(verification, target.definition, { missesTarget: judged === 'misses', reactorsAlone, capacitorKvar: capacitorKvarOf(recommended), reactorKvar });
+    const verdict: BuildVerdict = withheld ? 'withheld' : judged;
+    const cost = selection?.unbuildable ? null : (selection?.cost.value ?? 0) + CORRECTION_DEFAULTS.reactorCostFactor * reactorKvar;
+    return { sized, selection, refit, recommended, verification, verdict, cost, withheld };
   };
   const limitsBroken = (b: Build) => b.verification.warnings.filter((w) => LIMIT_WARNINGS.has(w.code)).length;
   /**
@@ -344,8 +364,18 @@ export function correctBoard(board: Board, spec: unknown): CorrectionReport {
     }
     return { build: base, fewerBranchesBuild: null, roundingBesideReactors: null };
   }
-  const { sized, selection, refit, recommended, verification } = chosen;
-  const useRefit = refit !== null && refit.used;
+  // Nothing to build: a build that made things worse (withheld), or a best build from units of nothing at
+  // all where exact capacitors would meet the target (the need is below what a unit or step can give).
+  const nothingCase =
+    sizing.status !== 'already-meets-target' &&
+    !chosen.selection?.unbuildable &&
+    (chosen.verdict === 'withheld' || (sizing.status === 'meets-target' && chosen.verdict === 'misses' && nothingBuilt(chosen.recommended)));
+  const { sized, refit } = chosen;
+  const selection = nothingCase ? null : chosen.selection;
+  const recommended = nothingCase ? [] : chosen.recommended;
+  // The board as it stands is what a study with nothing to build verifies: no "after" of equipment not offered.
+  const verification = nothingCase ? verifyCorrection(board, verifyOptions([])) : chosen.verification;
+  const useRefit = refit !== null && refit.used && !nothingCase;
   const asBuilt = useRefit && selection ? selectionWithResizedReactors(selection, refit, verification.branches) : selection;
   // The controller's CT goes where it reads (where the target is measured, else the equipment's board) and
   // carries the largest current there: before, with every step in, or in the worst state of the switched
@@ -374,10 +404,27 @@ export function correctBoard(board: Board, spec: unknown): CorrectionReport {
   const resizing = refit ? { reactors: refit.reactors, objectiveSized: refit.objectiveSized, objectiveResized: refit.objectiveResized, converged: refit.converged, used: useRefit, solves: refit.solves } : null;
   const idealVerification = sizing.arrangement === 'balancing-compensator' ? verifyCorrection(board, verifyOptions(sizing.ideal.equipment)) : null;
 
-  const balance = sizing.arrangement === 'balancing-compensator' ? judgeBalance(verification.after, sizing.balance) : null;
+  const balance = sizing.arrangement === 'balancing-compensator' && !nothingCase ? judgeBalance(verification.after, sizing.balance) : null;
   let status: CorrectionStatus;
   const reasons = [...sizing.reasons];
+  let nothingToBuild: NothingToBuild | null = null;
   if (sizing.status === 'already-meets-target') status = 'already-meets-target';
+  else if (nothingCase) {
+    status = 'nothing-to-build';
+    const practice = parsed.practice ?? defaultPractice(board.frequencyHz);
+    nothingToBuild = nothingToBuildOf({
+      before: verification.before,
+      pfTargetOf: (phase) => target.lines.find((l) => l.phase === phase)?.minPf ?? target.pf,
+      definitionWords: DEFINITION_WORDS[target.definition],
+      minStepKvar: parsed.bank?.minStepKvar ?? CORRECTION_DEFAULTS.minStepKvar,
+      selection: chosen.selection,
+      sized,
+      units: parsed.catalogue ? parsed.catalogue.map(catalogueUnitOf) : TYPICAL_CATALOGUES[practice].units,
+      withheld: chosen.withheld,
+      label,
+    });
+    reasons.push(nothingToBuild.why);
+  }
   else if (sizing.status === 'infeasible') status = 'infeasible';
   else if (selection?.unbuildable) {
     status = 'no-suitable-units';
@@ -426,7 +473,7 @@ export function correctBoard(board: Board, spec: unknown): CorrectionReport {
   );
   const what = arrangementNames(board.system, conventionsOf(board).region)[parsed.arrangement];
   const lostNeutral = status === 'already-meets-target' ? { caution: null, warning: null } : lostNeutralNotes(board, what, verification, built, label);
-  const warnings: CorrectionWarning[] = [
+  const warnings: CorrectionWarning[] = nothingCase ? [] : [
     ...(status === 'already-meets-target' ? [{ code: 'nothing-to-do', message: warningText.alreadyMet, path: 'target', value: null, threshold: null }] : []),
     ...(lostNeutral.warning ? [lostNeutral.warning] : []),
     ...starPointWarnings(sizing, board),
@@ -445,7 +492,7 @@ export function correctBoard(board: Board, spec: unknown): CorrectionReport {
     arrangement: parsed.arrangement,
     status,
     summary:
-      (status === 'already-meets-target'
+      (status === 'already-meets-target' || status === 'nothing-to-build'
         ? reportSummary[status](what)
         : status === 'no-suitable-units'
           ? reportSummary[status](what, delivered, nameplate, (selection?.unbuildable?.branches ?? []).map(label))
@@ -465,11 +512,15 @@ export function correctBoard(board: Board, spec: unknown): CorrectionReport {
     reactorResizing: resizing,
     fewerBranchesBuild,
     roundingBesideReactors,
+    nothingToBuild,
     warnings,
-    // Nothing to install: the capacitor cautions (discharge, inrush, resonance) are for equipment being added.
+    // Nothing to install: the capacitor cautions (discharge, inrush, resonance) are for equipment being added;
+    // with nothing to build, the discharge caution stays for a capacitor added at the equipment, as advised.
     cautions:
       status === 'already-meets-target'
         ? [MODEL_CAUTION]
+        : status === 'nothing-to-build'
+        ? nothingToBuildCautions(regionWords(conventionsOf(board).region, board.system).groundWord)
         : [...(lostNeutral.caution ? [lostNeutral.caution] : []), ...correctionCautions(regionWords(conventionsOf(board).region, board.system).groundWord)],
   };
 }
@@ -489,6 +540,10 @@ function exemptWords(v: CorrectionVerification, label: PhaseLabeller): string {
   });
   return lines.length ? `; ${exemptLeadingWords(lines)}` : '';
 }
+
+/** Capacitor kvar of equipment at nominal voltage. */
+const capacitorKvarOf = (groups: readonly EquipmentGroup[]): number =>
+  groups.flatMap((g) => g.branches).reduce((sum, b) => sum + (b.susceptanceS > 0 ? kvarFromSusceptance(b.susceptanceS, b.vNominal) : 0), 0);
 
 /** True when the equipment as built has no element worth building (every branch read as empty, as the branch tables read it). */
 function nothingBuilt(equipment: readonly EquipmentGroup[]): boolean {

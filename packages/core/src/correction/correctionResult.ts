@@ -632,7 +632,8 @@ export type CorrectionStatus =
   | 'already-meets-target'
   | 'misses-target-with-available-units'
   | 'no-suitable-units'
-  | 'infeasible';
+  | 'infeasible'
+  | 'nothing-to-build';
 
 export interface CorrectionReport {
   readonly arrangement: Arrangement;
@@ -665,8 +666,78 @@ export interface CorrectionReport {
    * otherwise (rounded down meets it: up is not tried).
    */
   readonly roundingBesideReactors: RoundingBesideReactors | null;
+  /**
+   * Status `nothing-to-build`: why no build is offered (the need per line, what stood in the way, a build
+   * withheld because it made things worse) and what to do instead. Null otherwise.
+   */
+  readonly nothingToBuild: NothingToBuild | null;
   readonly warnings: readonly CorrectionWarning[];
   readonly cautions: readonly string[];
+}
+
+/** What one line needs to reach the target PF on its own: Q = P·(tan φ1 − tan φ2). */
+export interface LineNeed {
+  readonly phase: PhaseId;
+  /** The line's active and reactive power before correction (load convention, + lagging), kW / kvar. */
+  readonly kW: number;
+  readonly kvar: number;
+  /** The line's PF before (null where it carries nothing) and the target's lower bound. */
+  readonly pfBefore: number | null;
+  readonly pfTarget: number;
+  /** Capacitive kvar that brings the line to the target, at the solved voltage; 0 where it already meets it. */
+  readonly neededKvar: number;
+}
+
+/**
+ * Why a build from units was not offered: `reactors-alone` (a compensator's capacitors could not be built,
+ * and its reactors are there to balance what they correct), `lowers-target-pf` (re-solved, the PF the target
+ * is defined on falls), `loads-idle-line` (a line that carried nothing carries current with it, and the
+ * target is still missed).
+ */
+export type WithheldBuildReason = 'reactors-alone' | 'lowers-target-pf' | 'loads-idle-line';
+
+/** A build from units verified and then withheld: what it would have done. */
+export interface WithheldBuild {
+  readonly reasons: readonly WithheldBuildReason[];
+  /** Capacitor and reactor kvar of the withheld build at nominal voltage (reactor kvar ≥ 0). */
+  readonly capacitorKvar: number;
+  readonly reactorKvar: number;
+  /** The PF the target is defined on, before and with the withheld build in (null where no line carries current). */
+  readonly targetPfBefore: number | null;
+  readonly targetPfWithBuild: number | null;
+  /** Lines that carried nothing before and carry current with the build in, with that current, A. */
+  readonly idleLinesLoaded: readonly { readonly phase: PhaseId; readonly currentA: number }[];
+}
+
+/** The smallest catalogue unit that suits one line-to-neutral branch, against that branch's capacitance window. */
+export interface SmallestUnitOnBranch {
+  readonly branch: string;
+  readonly phase: PhaseId;
+  readonly unitName: string;
+  readonly ratedKvar: number;
+  readonly ratedV: number;
+  readonly capacitanceUF: number;
+  /** Its output at the solved voltage across the branch, kvar. */
+  readonly kvarAtAppliedV: number;
+  /** The branch's window: the least capacitance holding the target at the low tolerance end, the most keeping every line within its bound at the high end, µF. */
+  readonly minimumUF: number;
+  readonly maximumUF: number | null;
+}
+
+/** Status `nothing-to-build`: the figures behind it and the words. */
+export interface NothingToBuild {
+  readonly needs: readonly LineNeed[];
+  /** The least kvar a switched step may have (`bank.minStepKvar`). */
+  readonly minStepKvar: number;
+  readonly smallestUnits: readonly SmallestUnitOnBranch[];
+  /** The build verified and withheld, null where none was made (no unit fitted). */
+  readonly withheld: WithheldBuild | null;
+  /** That build and what it would have done, in words; null with it. */
+  readonly withheldWords: string | null;
+  /** Why nothing is built, in words. */
+  readonly why: string;
+  /** What to do instead, in words. */
+  readonly advice: string;
 }
 
 export interface FewerBranchesBuild {
@@ -690,4 +761,5 @@ export interface RoundingBesideReactors {
   readonly costUp: number | null;
 }
 
-export type BuildVerdict = 'meets' | 'meets-at-nominal' | 'misses' | 'no-units';
+/** `withheld`: built and re-solved, but it made things worse (WithheldBuildReason), so it is not offered. */
+export type BuildVerdict = 'meets' | 'meets-at-nominal' | 'misses' | 'withheld' | 'no-units';

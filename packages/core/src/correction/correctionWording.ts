@@ -222,9 +222,9 @@ export const warningText = {
    * @param why the cheaper build's re-solved verdict where it is worse, or the warning of the limit it passes
    *   and the build kept does not (a verification warning's message)
    */
-  cheaperBuildPassedOver: (units: number, cost: number, why: { verdict: 'meets-at-nominal' | 'misses' | 'no-units' } | { limit: string }, builtUnits: number, builtCost: number, equalStepsOnly: boolean) =>
+  cheaperBuildPassedOver: (units: number, cost: number, why: { verdict: 'meets-at-nominal' | 'misses' | 'withheld' | 'no-units' } | { limit: string }, builtUnits: number, builtCost: number, equalStepsOnly: boolean) =>
     `a cheaper build of ${units} unit${units === 1 ? '' : 's'} (cost ${f1(cost)}) fits the capacitance ranges, but re-solved with it ${
-      'limit' in why ? why.limit : why.verdict === 'meets-at-nominal' ? 'the board meets the target only at nominal capacitance' : 'the board misses the target'
+      'limit' in why ? why.limit : why.verdict === 'meets-at-nominal' ? 'the board meets the target only at nominal capacitance' : why.verdict === 'withheld' ? 'the board is worse off than without it' : 'the board misses the target'
     }: the bank is built from ${equalStepsOnly ? 'equal steps' : 'the next-best build'} instead (${builtUnits} unit${builtUnits === 1 ? '' : 's'}, cost ${f1(builtCost)})`,
   ckBelowResolution: (settingA: number, resolutionA: number, chosen: boolean) =>
     `the C/k setting (${settingA.toFixed(3)} A) is below about ${resolutionA} A, finer than controllers usually resolve (common practice, no source): ${chosen ? 'the smallest step is small for this CT' : 'a smaller CT primary'} or a larger smallest step brings it up`,
@@ -260,6 +260,88 @@ export const warningText = {
       lightLoadChecked ? '' : `; at light load it leads further (give a light-load condition, --light-load or the correction section's lightLoad, to check it)`
     }. Where that board's lines must not lead, size the equipment for a PF measured there, or split it between the boards`,
 };
+
+const kvarText = (x: number) => x.toFixed(2);
+const listWords = (xs: readonly string[]) => (xs.length <= 1 ? xs.join('') : `${xs.slice(0, -1).join(', ')} and ${xs.at(-1)}`);
+
+/** The words of a study that ends with nothing to build (nothingToBuild.ts holds the figures). */
+export const nothingToBuildWords = {
+  why: (w: {
+    readonly needs: readonly { readonly line: string; readonly kW: number; readonly kvar: number; readonly pfBefore: number | null; readonly pfTarget: number; readonly neededKvar: number }[];
+    readonly minStepKvar: number;
+    readonly smallestUnits: readonly { readonly branchLabel: string; readonly line: string; readonly unitName: string; readonly capacitanceUF: number; readonly kvarAtAppliedV: number; readonly minimumUF: number; readonly maximumUF: number | null }[];
+    readonly tolerance: { readonly minusPercent: number; readonly plusPercent: number } | null;
+    readonly withheld: {
+      readonly reasons: readonly string[];
+      readonly capacitorKvar: number;
+      readonly reactorKvar: number;
+      readonly targetPfBefore: number | null;
+      readonly targetPfWithBuild: number | null;
+      readonly idleLinesLoaded: readonly { readonly line: string; readonly currentA: number }[];
+    } | null;
+    readonly definitionWords: string;
+  }): string => {
+    const parts: string[] = [];
+    for (const n of w.needs) {
+      const tan1 = n.kvar / n.kW;
+      const tan2 = Math.tan(Math.acos(n.pfTarget));
+      parts.push(
+        `line ${n.line} needs ${kvarText(n.neededKvar)} kvar to go from PF ${n.pfBefore === null ? '-' : f3(n.pfBefore)} to ${f3(n.pfTarget)} (Q = P·(tan φ1 − tan φ2) = ${kvarText(n.kW)} kW × (${f3(tan1)} − ${f3(tan2)}))`,
+      );
+      if (n.neededKvar < w.minStepKvar)
+        parts.push(
+          `that is below the least step the bank may switch, ${kvarText(w.minStepKvar)} kvar (bank.minStepKvar)${w.minStepKvar > n.kvar ? `, and a step that size would make line ${n.line} lead: its whole lagging demand is ${kvarText(n.kvar)} kvar` : ''}`,
+        );
+    }
+    for (const u of w.smallestUnits) {
+      const tol = w.tolerance;
+      const short = u.capacitanceUF < u.minimumUF;
+      const past = u.maximumUF !== null && u.capacitanceUF > u.maximumUF;
+      const twoPast = u.maximumUF !== null && 2 * u.capacitanceUF > u.maximumUF;
+      const unit = `the smallest unit that suits ${u.branchLabel}, ${u.unitName} (${u.capacitanceUF.toFixed(1)} µF, ${kvarText(u.kvarAtAppliedV)} kvar at the solved voltage)`;
+      if (u.maximumUF !== null && u.maximumUF < u.minimumUF)
+        parts.push(
+          `no capacitance on ${u.branchLabel} holds the target${tol ? ` at −${trimmed(tol.minusPercent)} %` : ''} (at least ${u.minimumUF.toFixed(1)} µF) and keeps line ${u.line} within its bound${tol ? ` at +${trimmed(tol.plusPercent)} %` : ''} (at most ${u.maximumUF.toFixed(1)} µF); the smallest unit that suits it, ${u.unitName}, is ${u.capacitanceUF.toFixed(1)} µF (${kvarText(u.kvarAtAppliedV)} kvar at the solved voltage)`,
+        );
+      else if (past) parts.push(`${unit} is above the ${u.maximumUF!.toFixed(1)} µF past which line ${u.line} passes its bound${tol ? ` at +${trimmed(tol.plusPercent)} % capacitance` : ''}: it would make the line lead`);
+      else if (short)
+        parts.push(
+          `${unit} is below the ${u.minimumUF.toFixed(1)} µF the target needs${tol ? ` at −${trimmed(tol.minusPercent)} % capacitance` : ''}${twoPast ? `, and two (${(2 * u.capacitanceUF).toFixed(1)} µF) are above the ${u.maximumUF!.toFixed(1)} µF past which line ${u.line} leads` : ''}`,
+        );
+    }
+    if (w.withheld) parts.push(nothingToBuildWords.withheld(w.withheld, w.definitionWords));
+    return parts.length ? parts.join('; ') : 'no build of the available units brings the board nearer the target';
+  },
+  /** A build verified and not offered, and what it would have done. */
+  withheld: (
+    h: {
+      readonly reasons: readonly string[];
+      readonly capacitorKvar: number;
+      readonly reactorKvar: number;
+      readonly targetPfBefore: number | null;
+      readonly targetPfWithBuild: number | null;
+      readonly idleLinesLoaded: readonly { readonly line: string; readonly currentA: number }[];
+    },
+    definitionWords: string,
+  ): string => {
+    const what = h.reasons.includes('reactors-alone')
+      ? `its reactors alone (${kvarText(h.reactorKvar)} kvar; none of its capacitors could be built, and the reactors are there to balance what the capacitors correct)`
+      : `${kvarText(h.capacitorKvar)} kvar of capacitors${h.reactorKvar > 0 ? ` and ${kvarText(h.reactorKvar)} kvar of reactors` : ''}`;
+    const effects = [
+      ...(h.targetPfBefore !== null && h.targetPfWithBuild !== null && h.targetPfWithBuild < h.targetPfBefore ? [`lower the ${definitionWords} from ${f3(h.targetPfBefore)} to ${f3(h.targetPfWithBuild)}`] : []),
+      ...h.idleLinesLoaded.map((l) => `load line ${l.line}, which carried nothing, with ${l.currentA.toFixed(1)} A`),
+    ];
+    return `the best build of the available units, ${what}, was re-solved and is not offered${effects.length ? `: it would ${listWords(effects)}` : ''}`;
+  },
+  advice: (lines: readonly { readonly line: string; readonly loads: readonly { readonly name: string; readonly kvar: number }[] }[], boardKvar: number, boardPf: number | null) => {
+    const at = lines.flatMap((l) => l.loads.map((x) => `${quoteText(x.name)} (${kvarText(x.kvar)} kvar lagging, line ${l.line})`));
+    const unique = [...new Set(at)];
+    return `nothing is to be built at the board. Either correct at the equipment — a capacitor at the terminals of ${unique.length ? listWords(unique) : 'the loads drawing the lagging current'}, switched with it; beside a motor keep it below the motor's no-load reactive power, or the motor can self-excite when it is switched off (common practice) — or accept the PF as it is: the board draws ${kvarText(boardKvar)} kvar${boardPf === null ? '' : ` (vector PF ${f3(boardPf)})`}, which matters only where the supply charges for reactive energy or a conductor is near its rating`;
+  },
+};
+
+/** Cautions for a study with nothing to build: the model's, and the one for a capacitor added at the equipment as advised. */
+export const nothingToBuildCautions = (ground: 'earth' | 'ground'): readonly string[] => [correctionCautions(ground)[0]!, MODEL_CAUTION];
 
 /** The caution that holds with or without equipment to install. */
 export const MODEL_CAUTION =
@@ -374,6 +456,7 @@ export const BUILD_VERDICT_WORDS: Readonly<Record<BuildVerdict, string>> = {
   meets: 'meets the target',
   'meets-at-nominal': 'meets the target at nominal capacitance only',
   misses: 'misses the target',
+  withheld: 'is made worse (that build is not offered)',
   'no-units': 'finds no units that fit',
 };
 
@@ -473,6 +556,7 @@ export const reportSummary = {
       : `${what}: no unit of the catalogue suits the voltage across the bank`,
   infeasible: (what: string, delivered: number, nameplate: number) =>
     `${what}: the target cannot be met with capacitors in this arrangement; the best reachable build is ${bankWords(delivered, nameplate)}`,
+  'nothing-to-build': (what: string) => `${what}: no build of the available units brings the board nearer the target, so nothing is to be built (see why below)`,
 };
 
 /** A three-phase board's names: the star bank in the region's word (a wye bank in North America). */
@@ -531,6 +615,7 @@ const STATUS_SHORT: Record<string, string> = {
   'misses-target-with-available-units': 'misses the target with the available units',
   infeasible: 'cannot reach the target with capacitors',
   'no-suitable-units': 'has no unit that suits the voltage across its branches (some or all)',
+  'nothing-to-build': 'has no build of the available units that brings the board nearer the target',
 };
 
 export const comparisonWording = {
@@ -540,7 +625,7 @@ export const comparisonWording = {
     name: string,
     status: string,
     f: { cost: number; lossesKW: number },
-    others: readonly { name: string; status: string; cost: number; lossesKW: number; overloads: boolean }[],
+    others: readonly { name: string; status: string; cost: number; lossesKW: number; overloads: boolean; withheld?: string | null }[],
     tieOnCost: boolean,
   ) => {
     // Nothing bought (no unit, no reactor) has no cost to quote: say so in words instead of "cost 0.0".
@@ -552,6 +637,8 @@ export const comparisonWording = {
           ? nothingAdded(f.cost)
             ? `${name}: ${STATUS_SHORT[status]} with nothing added to the board`
             : `${name}: ${STATUS_SHORT[status]} at ${tieOnCost ? 'about the least cost and with the lowest losses' : 'the least cost'} (cost ${f.cost.toFixed(1)})`
+          : status === 'nothing-to-build'
+            ? `nothing to build: ${others.length ? 'no arrangement meets the target; the ' : 'the '}${name} ${STATUS_SHORT[status]}`
           : others.length
             ? `${name}: no arrangement meets the target; this one comes closest (${STATUS_SHORT[status]})`
             : `${name}: the only arrangement studied ${STATUS_SHORT[status]}`;
@@ -559,6 +646,8 @@ export const comparisonWording = {
     const rest = others.map((o) =>
       o.overloads
         ? `${o.name} ${STATUS_SHORT[o.status]} but overloads what feeds it${nothingAdded(o.cost) ? '' : ` (cost ${o.cost.toFixed(1)})`}`
+        : o.withheld
+          ? `${o.name}: ${o.withheld}`
         : o.status !== status
           ? `${o.name} ${STATUS_SHORT[o.status]}`
           : nothingAdded(o.cost)

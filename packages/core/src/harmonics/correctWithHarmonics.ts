@@ -179,7 +179,7 @@ function asDetuned(report: CorrectionReport, p: number, percent: number, plainSe
   };
   const what = `${arrangementNames(report.verification.before.board.system, report.verification.before.conventions.region)[report.arrangement]} with ${percent} % detuning reactors`;
   const summary =
-    report.status === 'already-meets-target' || report.status === 'no-suitable-units'
+    report.status === 'already-meets-target' || report.status === 'no-suitable-units' || report.status === 'nothing-to-build'
       ? reportSummary[report.status](what)
       : reportSummary[report.status](what, selection.deliveredKvar, nameplate);
   const withoutEstimate = (ws: readonly CorrectionWarning[]) => ws.filter((w) => w.code !== 'resonance');
@@ -282,6 +282,7 @@ const UNMET_REASON: Partial<Record<CorrectionReport['status'], string>> = {
   'no-suitable-units': 'no unit of the catalogue suits its capacitor voltage',
   infeasible: 'it cannot reach the target in this arrangement',
   'misses-target-with-available-units': 'the units available miss the target',
+  'nothing-to-build': 'no build of the available units brings the board nearer the target',
 };
 
 function variantOf<Check>(checkBank: BankChecker<Check>, board: Board, report: CorrectionReport, name: string, percent: number): VariantRun<Check> {

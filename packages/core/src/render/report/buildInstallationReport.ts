@@ -90,7 +90,7 @@ export function buildInstallationReport(input: InstallationReportInput): ReportD
     const resonance = idle ? null : resonanceSection(correction.report);
     if (resonance) sections.push(atBoard(resonance, correction.board));
     // Nothing added: every board's before → after would read "x → x".
-    if (!idle) sections.push(installationCorrectionSection(correction.effect));
+    if (!idle && correction.report.status !== 'nothing-to-build') sections.push(installationCorrectionSection(correction.effect));
   } else if (compared) sections.push(banks(atBoard(correctionComparisonSection(compared.comparison, input.result.installation.system, input.result.boards[0]!.result.conventions.region), compared.board)));
   const harmonics = input.harmonics ?? null;
   if (harmonics) {

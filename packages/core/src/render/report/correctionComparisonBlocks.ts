@@ -20,6 +20,7 @@ const VERDICT_WORDS: Readonly<Record<string, string>> = {
   'misses-target-with-available-units': 'misses it with the available units',
   infeasible: 'cannot reach it',
   'no-suitable-units': 'no unit suits the voltage',
+  'nothing-to-build': 'nothing to build',
 };
 
 const capitalised = (text: string) => text.charAt(0).toUpperCase() + text.slice(1);
@@ -70,7 +71,8 @@ export function correctionComparisonBlocks(c: CorrectionComparison | HarmonicCom
         const name = capitalised(names[o.arrangement]);
         const f = o.figures;
         if (!o.report || !f) return withVariant([name, 'not applicable', dash, dash, dash, dash, dash, dash], o);
-        const built = o.report.status !== 'no-suitable-units';
+        // No unit fits, or nothing to build: no bank to give figures of.
+        const built = o.report.status !== 'no-suitable-units' && o.report.status !== 'nothing-to-build';
         // Nothing built (no unit fits): no "after" to show; the board as it stands is not one.
         const noAfter = (o.report.selection?.units ?? 0) === 0 && o.report.status !== 'already-meets-target';
         return withVariant([
@@ -91,9 +93,20 @@ export function correctionComparisonBlocks(c: CorrectionComparison | HarmonicCom
         `Rule: ${c.rule}.`,
       ].join(' '),
     },
-    { kind: 'paragraph', text: c.recommended === null ? `${capitalised(withoutStop(c.why))}.` : `Recommended — ${withoutStop(c.why)}. The recommended arrangement follows in full.` },
+    {
+      kind: 'paragraph',
+      text:
+        c.recommended === null
+          ? `${capitalised(withoutStop(c.why))}.`
+          : recommendedStatus(c) === 'nothing-to-build'
+            ? `${capitalised(withoutStop(c.why))}. The study behind the verdict follows.`
+            : `Recommended — ${withoutStop(c.why)}. The recommended arrangement follows in full.`,
+    },
   ];
 }
+
+/** The status of the arrangement the comparison names. */
+const recommendedStatus = (c: CorrectionComparison): string | null => c.outcomes.find((o) => o.arrangement === c.recommended)?.report?.status ?? null;
 
 /** The section when no arrangement could be studied: the comparison alone. */
 export function correctionComparisonSection(c: CorrectionComparison, system: string, region: Region): ReportSection {

@@ -149,9 +149,37 @@ function linesNote(exporting: readonly string[], lineCount: number): string {
   return more === null ? base : `${base} ${more.charAt(0).toUpperCase()}${more.slice(1)}.`;
 }
 
+/**
+ * A study with nothing to build: the verdict, why in figures (each line's need against the smallest step
+ * and unit, a build withheld because it made things worse) and what to do instead. No equipment,
+ * controller or before → after: there is no bank.
+ */
+function nothingToBuildSection(report: CorrectionReport, comparison: CorrectionComparison | null): ReportSection {
+  const v = report.verification;
+  const label = labellerOf(v.before.conventions.phaseNames);
+  const nothing = report.nothingToBuild;
+  const blocks: ReportBlock[] = [
+    ...(comparison ? correctionComparisonBlocks(comparison, v.before.board.system, v.before.conventions.region) : []),
+    { kind: 'paragraph', text: `Nothing to build: ${report.summary}.` },
+  ];
+  if (report.reasons.length) blocks.push({ kind: 'list', tone: 'warning', items: report.reasons });
+  if (nothing) {
+    blocks.push({
+      kind: 'table',
+      caption: 'What each line needs to reach the target',
+      columns: [{ label: 'Line' }, { label: 'kW', align: 'right' }, { label: 'kvar', align: 'right' }, { label: 'PF', align: 'right' }, { label: 'PF wanted', align: 'right' }, { label: 'kvar to add', align: 'right' }],
+      rows: nothing.needs.map((n) => [label(n.phase), fixed(n.kW, 2), fixed(n.kvar, 2), n.pfBefore === null ? '—' : fixed(n.pfBefore, 3), fixed(n.pfTarget, 3), n.pfBefore === null ? '—' : fixed(n.neededKvar, 2)]),
+      note: `kvar to add = P·(tan φ1 − tan φ2) at the solved voltage; the least step a bank may switch is ${fixed(nothing.minStepKvar, 2)} kvar (bank.minStepKvar).`,
+    });
+    blocks.push({ kind: 'paragraph', text: `What to do: ${nothing.advice}.` });
+  }
+  return { id: 'correction', title: 'Correction recommendation', blocks };
+}
+
 /** @param comparison the arrangements compared, when the study named none and `report` is the one recommended */
 export function correctionSection(report: CorrectionReport, comparison: CorrectionComparison | null = null): ReportSection {
   if (nothingToAdd(report, comparison)) return nothingToAddSection(report, comparison);
+  if (report.status === 'nothing-to-build') return nothingToBuildSection(report, comparison);
   const v = report.verification;
   // Lines as the board file names them (L1 or A).
   const label = labellerOf(v.before.conventions.phaseNames);
