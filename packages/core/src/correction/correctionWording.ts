@@ -334,8 +334,15 @@ export const nothingToBuildWords = {
     return `the best build of the available units, ${what}, was re-solved and is not offered${effects.length ? `: it would ${listWords(effects)}` : ''}`;
   },
   advice: (lines: readonly { readonly line: string; readonly loads: readonly { readonly name: string; readonly kvar: number }[] }[], boardKvar: number, boardPf: number | null) => {
-    const at = lines.flatMap((l) => l.loads.map((x) => `${quoteText(x.name)} (${kvarText(x.kvar)} kvar lagging, line ${l.line})`));
-    const unique = [...new Set(at)];
+    // A load on several lines (a three-phase motor) is named once, with its lines: its kvar is the whole load's.
+    const byLoad = new Map<string, { kvar: number; lines: string[] }>();
+    for (const l of lines)
+      for (const x of l.loads) {
+        const seen = byLoad.get(x.name);
+        if (seen) seen.lines.push(l.line);
+        else byLoad.set(x.name, { kvar: x.kvar, lines: [l.line] });
+      }
+    const unique = [...byLoad].map(([name, x]) => `${quoteText(name)} (${kvarText(x.kvar)} kvar lagging, ${x.lines.length > 1 ? `lines ${listWords(x.lines)}` : `line ${x.lines[0]}`})`);
     return `nothing is to be built at the board. Either correct at the equipment — a capacitor at the terminals of ${unique.length ? listWords(unique) : 'the loads drawing the lagging current'}, switched with it; beside a motor keep it below the motor's no-load reactive power, or the motor can self-excite when it is switched off (common practice) — or accept the PF as it is: the board draws ${kvarText(boardKvar)} kvar${boardPf === null ? '' : ` (vector PF ${f3(boardPf)})`}, which matters only where the supply charges for reactive energy or a conductor is near its rating`;
   },
 };
