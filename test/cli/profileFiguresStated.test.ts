@@ -28,7 +28,7 @@ describe('trivar profile figures', () => {
     const BUSY = 'test/fixtures/profile/print-shop-busy.csv';
     it('a 2.77 kvar need: one 3 kvar step that closes, not two 2.5 kvar steps of which the second never does', () => {
       // 20 kW at 9.34 kvar (PF 0.906): 9.34 − 20·tan(acos 0.95) = 2.77 kvar. Two 2.5 kvar steps would leave
-      // 0.27 kvar after the first, under the 0.67 × 2.5 = 1.68 kvar threshold: PF 0.946, below the target.
+      // 0.27 kvar after the first, under the 0.65 × 2.5 = 1.63 kvar threshold: PF 0.946, below the target.
       const json = JSON.parse(runTrivar(['profile', SHOP, '--data', BUSY, '--bank', '--json']).stdout);
       expect(json.bank.needKvar.ABC).toBeCloseTo(2.77, 2);
       // The bank starts settled at the first interval's load: the step is in from the start, no closing counted.
@@ -43,7 +43,7 @@ describe('trivar profile figures', () => {
       const args = ['profile', 'test/fixtures/profile/print-shop-coarse-steps.yaml', '--data', BUSY, '--bank'];
       const text = runTrivar(args).stdout.replace(/\s+/g, ' ');
       expect(text).toContain('billing power factor 0.906 → 0.946');
-      expect(text).toContain('board PF below 0.95 with the bank: 4.00 h of import — 4.00 h with the shortfall under the switching threshold (0.67 × 2.5 kvar = 1.68 kvar: no step closes for it)');
+      expect(text).toContain('board PF below 0.95 with the bank: 4.00 h of import — 4.00 h with the shortfall under the switching threshold (0.65 × 2.5 kvar = 1.63 kvar: no step closes for it)');
       const json = JSON.parse(runTrivar([...args, '--json']).stdout);
       // Settled at the first interval's load (one step in, its start-up closing not counted), then steady.
       expect(json.bank.steps.map((s: { closings: number }) => s.closings)).toEqual([0, 0]);
