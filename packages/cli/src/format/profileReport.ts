@@ -162,6 +162,7 @@ export function bankLines(r: { readonly bank: ProfileResult['bank']; readonly be
       b.steps.map((s) => [String(s.step), b.placeWords[s.channel] ?? s.channel, fixed(s.kvar, 1), thousands(s.closings), thousands(s.closingsPerYear)]),
     ),
     wrapText(b.closingsBasis.words, '  ', '    '),
+    ...(b.neverClosed ?? []).map((n) => wrapText(`! ${n.words}`, '  ', '    ')),
     `  typical limit ${thousands(b.operationsPerYearLimit)} operations a year per step (IEC 60831-1 practice); a capacitor contactor lasts about ${thousands(b.contactorLifeOperations)} operations${
       b.yearsToContactorLife === null ? '' : ` — the busiest step ${contactorLifeWords(b.yearsToContactorLife)}`
     }`,
