@@ -45,9 +45,12 @@ describe('a bank settled short of the target, its open step too large for the ne
     expect(bank.belowTarget).toEqual({
       hours: 2,
       allStepsInHours: 0,
+      shortOfStepsHours: 0,
+      shortOfStepsOpenKvar: 0,
       underResponseHours: 0,
       underResponseChannels: [],
       stepTooCoarseHours: 0,
+      stepTooCoarseChannels: [],
       openStepsTooLargeHours: 2,
       onTheWayHours: 0,
       openStepsTooLarge: { channel: 'ABC', leastNeedKvar: expect.closeTo(25 - 40 * TAN_095, 9), mostNeedKvar: expect.closeTo(25 - 40 * TAN_095, 9), smallestOpenKvar: 30, closingShare: expect.closeTo((25 - 40 * TAN_095) / 30, 9), closingStepKvar: expect.closeTo((25 - 40 * TAN_095) / 0.65, 9) },

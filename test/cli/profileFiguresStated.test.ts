@@ -35,7 +35,7 @@ describe('trivar profile figures', () => {
       expect(json.bank.steps.map((s: { kvar: number; closings: number }) => [s.kvar, s.closings])).toEqual([[3, 0]]);
       // 9.34 − 3.02 (3 kvar at 100.4 % voltage) = 6.32 kvar → 20/√(20² + 6.32²) = 0.9535.
       expect(json.bank.after.energy.billingPf).toBeCloseTo(0.9535, 3);
-      expect(json.bank.belowTarget).toEqual({ hours: 0, allStepsInHours: 0, underResponseHours: 0, underResponseChannels: [], stepTooCoarseHours: 0, openStepsTooLargeHours: 0, onTheWayHours: 0, openStepsTooLarge: null });
+      expect(json.bank.belowTarget).toEqual({ hours: 0, allStepsInHours: 0, shortOfStepsHours: 0, shortOfStepsOpenKvar: 0, underResponseHours: 0, underResponseChannels: [], stepTooCoarseHours: 0, stepTooCoarseChannels: [], openStepsTooLargeHours: 0, onTheWayHours: 0, openStepsTooLarge: null });
       expect(json.bank.targetOutOfReach).toBeNull();
     });
 
@@ -47,7 +47,7 @@ describe('trivar profile figures', () => {
       const json = JSON.parse(runTrivar([...args, '--json']).stdout);
       // Settled at the first interval's load (one step in, its start-up closing not counted), then steady.
       expect(json.bank.steps.map((s: { closings: number }) => s.closings)).toEqual([0, 0]);
-      expect(json.bank.belowTarget).toEqual({ hours: 4, allStepsInHours: 0, underResponseHours: 4, underResponseChannels: [{ channel: 'ABC', smallestKvar: 2.5 }], stepTooCoarseHours: 0, openStepsTooLargeHours: 0, onTheWayHours: 0, openStepsTooLarge: null });
+      expect(json.bank.belowTarget).toEqual({ hours: 4, allStepsInHours: 0, shortOfStepsHours: 0, shortOfStepsOpenKvar: 0, underResponseHours: 4, underResponseChannels: [{ channel: 'ABC', smallestKvar: 2.5 }], stepTooCoarseHours: 0, stepTooCoarseChannels: [], openStepsTooLargeHours: 0, onTheWayHours: 0, openStepsTooLarge: null });
     });
 
     it('a need under every step size\'s threshold is warned, not passed silently', () => {

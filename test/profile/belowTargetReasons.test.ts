@@ -20,7 +20,7 @@ function figures(kW: number[], kvar: number[]): IntervalFigures {
   return { count: kW.length, lineA: [zero], neutralA: zero, phaseV: [zero], lineToLineV: [], phaseW: [col(kW)], phaseVar: [col(kvar)], unbalancePercent: zero, lineDeviationPercent: zero };
 }
 
-const parts = (t: BelowTarget) => t.allStepsInHours + t.underResponseHours + t.stepTooCoarseHours + t.openStepsTooLargeHours + t.onTheWayHours;
+const parts = (t: BelowTarget) => t.allStepsInHours + (t.shortOfStepsHours ?? 0) + t.underResponseHours + t.stepTooCoarseHours + t.openStepsTooLargeHours + t.onTheWayHours;
 
 describe('a step waiting out its discharge is the controller on its way', () => {
   // An invented bakery: a 24 kW dough mixer at PF 0.72 on a stiff supply, one 20 kvar step. Mixer on for
@@ -49,9 +49,12 @@ describe('a step waiting out its discharge is the controller on its way', () => 
     expect(bank.belowTarget).toEqual({
       hours: expect.closeTo(2 / 60, 12),
       allStepsInHours: 0,
+      shortOfStepsHours: 0,
+      shortOfStepsOpenKvar: 0,
       underResponseHours: 0,
       underResponseChannels: [],
       stepTooCoarseHours: 0,
+      stepTooCoarseChannels: [],
       openStepsTooLargeHours: 0,
       onTheWayHours: expect.closeTo(2 / 60, 12),
       openStepsTooLarge: null,
@@ -76,9 +79,12 @@ describe('steps still open, each too large for what is left', () => {
     expect(t).toEqual({
       hours: 1,
       allStepsInHours: 0,
+      shortOfStepsHours: 0,
+      shortOfStepsOpenKvar: 0,
       underResponseHours: 0,
       underResponseChannels: [],
       stepTooCoarseHours: 0,
+      stepTooCoarseChannels: [],
       openStepsTooLargeHours: 1,
       onTheWayHours: 0,
       openStepsTooLarge: { channel: 'ABC', leastNeedKvar: expect.closeTo(9, 9), mostNeedKvar: expect.closeTo(11, 9), smallestOpenKvar: 20, closingShare: expect.closeTo(0.45, 9), closingStepKvar: expect.closeTo(9 / 0.67, 9) },
@@ -165,7 +171,7 @@ describe('the reasons add up to the hours below the target', () => {
           900_000,
           c.rowHours ? Float64Array.from(c.rowHours) : null,
         );
-        for (const part of [t.allStepsInHours, t.underResponseHours, t.stepTooCoarseHours, t.openStepsTooLargeHours, t.onTheWayHours]) expect(part).toBeGreaterThanOrEqual(0);
+        for (const part of [t.allStepsInHours, t.shortOfStepsHours ?? 0, t.underResponseHours, t.stepTooCoarseHours, t.openStepsTooLargeHours, t.onTheWayHours]) expect(part).toBeGreaterThanOrEqual(0);
         expect(Math.abs(parts(t) - t.hours)).toBeLessThanOrEqual(1e-12 * Math.max(1, t.hours));
         expect(t.openStepsTooLarge !== null).toBe(t.openStepsTooLargeHours > 0);
         // What would close for it is always smaller than what is open: a lower share, a smaller step.
