@@ -300,7 +300,7 @@ export function neverClosedWords(n: NeverClosedStep, place: string, settings: { 
   }
   if (n.underThresholdHours > 0 && n.mostNeedKvar !== null) {
     const threshold = settings.responseShare * n.kvar;
-    const [need, limit] = apartKvar(n.mostNeedKvar, threshold);
+    const [need, limit] = apartKvar(n.mostNeedKvar, threshold, 2);
     parts.push(`in ${hours(n.underThresholdHours)} h the need there, at most ${need} kvar, stayed under its own threshold (${settings.responseShare.toFixed(2)} × ${kvar} = ${limit} kvar)`);
   }
   if (n.waitingHours > 0) parts.push(`in ${hours(n.waitingHours)} h it could have closed but waited (the delay, its discharge, or another step first)`);
@@ -308,11 +308,11 @@ export function neverClosedWords(n: NeverClosedStep, place: string, settings: { 
 }
 
 /**
- * Two kvar figures printed with enough decimals (1 to 3) that the smaller reads smaller: a step "against at
+ * Two kvar figures printed with enough decimals (`fewest` to 3) that the smaller reads smaller: a step "against at
  * most" a room must never print as equal to it.
  */
-function apartKvar(small: number, large: number): [string, string] {
-  for (const d of [1, 2, 3]) if (Number(small.toFixed(d)) < Number(large.toFixed(d))) return [small.toFixed(d), large.toFixed(d)];
+function apartKvar(small: number, large: number, fewest = 1): [string, string] {
+  for (const d of [1, 2, 3].filter((x) => x >= fewest)) if (Number(small.toFixed(d)) < Number(large.toFixed(d))) return [small.toFixed(d), large.toFixed(d)];
   return [small.toFixed(3), large.toFixed(3)];
 }
 
