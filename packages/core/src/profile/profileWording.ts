@@ -291,17 +291,17 @@ export function neverClosedWords(n: NeverClosedStep, place: string, settings: { 
   const head = `step ${n.step} (${kvar} kvar ${place}) never closed over the data`;
   const unused = `${kvar} of the bank's ${totalKvar.toFixed(1)} kvar unused at these loads`;
   if (n.shortHours <= 0) return `${head}: its lines never read short of the target with the other steps in — ${unused}`;
-  const upper = settings.upperPf === null || settings.upperPf >= 1 ? 'unity (leading)' : `PF ${settings.upperPf.toFixed(Math.round(settings.upperPf * 100) === settings.upperPf * 100 ? 2 : 3)} lagging`;
+  const upper = settings.upperPf === null || settings.upperPf >= 1 ? 'unity into leading' : `PF ${settings.upperPf.toFixed(Math.round(settings.upperPf * 100) === settings.upperPf * 100 ? 2 : 3)} lagging`;
   const parts: string[] = [];
   if (n.pastLimitHours > 0 && n.mostRoomKvar !== null) {
     const [room, step] = apartKvar(Math.max(0, n.mostRoomKvar), n.kvar);
     const what = settings.upperPf === null || settings.upperPf >= 1 ? 'lagging' : 'of room before that limit';
-    parts.push(`in ${hours(n.pastLimitHours)} h closing it would have carried them past ${upper} at its rated ${step} kvar (at most ${room} kvar ${what} there)`);
+    parts.push(`in ${hours(n.pastLimitHours)} h closing it would have carried them past ${upper} at its rated ${step} kvar (${room.startsWith('just') ? room : `at most ${room}`} kvar ${what} there)`);
   }
   if (n.underThresholdHours > 0 && n.mostNeedKvar !== null) {
     const threshold = settings.responseShare * n.kvar;
     const [need, limit] = apartKvar(n.mostNeedKvar, threshold, 2);
-    parts.push(`in ${hours(n.underThresholdHours)} h the need there, at most ${need} kvar, stayed under its own threshold (${settings.responseShare.toFixed(2)} × ${kvar} = ${limit} kvar)`);
+    parts.push(`in ${hours(n.underThresholdHours)} h the need there, ${need.startsWith('just') ? need : `at most ${need}`} kvar, stayed under its own threshold (${settings.responseShare.toFixed(2)} × ${kvar} = ${limit} kvar)`);
   }
   if (n.waitingHours > 0) parts.push(`in ${hours(n.waitingHours)} h it could have closed but waited (the delay, its discharge, or another step first)`);
   return `${head}: of the ${hours(n.shortHours)} h its lines read short of the target, ${parts.join('; ')} — ${unused}`;
@@ -309,11 +309,12 @@ export function neverClosedWords(n: NeverClosedStep, place: string, settings: { 
 
 /**
  * Two kvar figures printed with enough decimals (`fewest` to 3) that the smaller reads smaller: a step "against at
- * most" a room must never print as equal to it.
+ * most" a room must never print as equal to it; closer than that, the smaller reads "just under" the larger.
  */
 function apartKvar(small: number, large: number, fewest = 1): [string, string] {
   for (const d of [1, 2, 3].filter((x) => x >= fewest)) if (Number(small.toFixed(d)) < Number(large.toFixed(d))) return [small.toFixed(d), large.toFixed(d)];
-  return [small.toFixed(3), large.toFixed(3)];
+  // Closer than three decimals tell apart: said in words, the larger at the usual decimals.
+  return [`just under ${large.toFixed(fewest)}`, large.toFixed(fewest)];
 }
 
 /**
@@ -334,17 +335,18 @@ function shortOfStepsWords(t: BelowTarget, hours: string): string {
  */
 function stepTooCoarseWords(b: ProfileBankResult, hours: string, upper: string): string {
   const unity = (b.settings.upperPf ?? 1) >= 1;
-  const past = unity ? 'past unity (leading)' : `past PF ${upper} lagging`;
-  const head = `${hours} h with the steps still open on lines short of the target too large to close: at their rated kvar they would carry those lines ${past}`;
+  const past = unity ? 'past unity into leading' : `past PF ${upper} lagging`;
+  const head = `${hours} h with the steps still open on lines short of the target too large for them, at their rated kvar carrying those lines ${past}`;
   const channels = b.belowTarget.stepTooCoarseChannels;
   // A result without the channels (written before they were kept): the head alone.
-  if (!channels?.length) return `${head} (steps too coarse for that load)`;
+  if (!channels?.length) return `${head}: steps too coarse for that load`;
   const figures = channels.map((c) => {
     const [room, step] = apartKvar(Math.max(0, c.mostRoomKvar), c.smallestOpenKvar);
     const lines = c.channel === 'ABC' ? 'on the board' : 'on its lines';
-    return `${step} kvar ${b.placeWords[c.channel] ?? c.channel} against at most ${room} kvar ${unity ? 'lagging' : `of room before PF ${upper}`} ${lines}`;
+    return `${step} kvar ${b.placeWords[c.channel] ?? c.channel} against ${room.startsWith('just') ? room : `at most ${room}`} kvar ${unity ? 'lagging' : `of room before PF ${upper}`} ${lines}`;
   });
-  return `${head}: ${figures.join('; ')} (steps too coarse for that load)`;
+  const listed = figures.length > 1 ? `${figures.slice(0, -1).join(', ')} and ${figures[figures.length - 1]}` : figures[0]!;
+  return `${head} (${listed}): steps too coarse for that load`;
 }
 
 /**
