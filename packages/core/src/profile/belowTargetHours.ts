@@ -146,15 +146,18 @@ export function belowTargetStates(
     const short: StepChannel[] = [];
     for (const c of channels) {
       const g = rule.gauge(channelReadingAt(f, phaseIndex, c.channel, i), c.smallestKvar);
-      const open = c.members.filter((k) => stepOn[k]![i] !== 1);
       if (g.need <= 0) {
         // Content, or over-corrected with a step it would take out.
         if (g.wants === 'out' && c.members.some((k) => stepOn[k]![i] === 1 && rule.mayOpen(steps[k]!.kvar, g))) moving = true;
         continue;
       }
+      const open = c.members.filter((k) => stepOn[k]![i] !== 1);
       if (!open.length) continue;
-      for (const k of open) openOnShort += steps[k]!.kvar;
-      const smallestOpen = Math.min(...open.map((k) => steps[k]!.kvar));
+      let smallestOpen = Infinity;
+      for (const k of open) {
+        openOnShort += steps[k]!.kvar;
+        smallestOpen = Math.min(smallestOpen, steps[k]!.kvar);
+      }
       if (g.wants === 'in' && open.some((k) => rule.mayClose(steps[k]!.kvar, g))) moving = true;
       else if (rule.banded && open.every((k) => steps[k]!.kvar * 1000 > g.room)) pastBand.push({ channel: c.channel, smallestOpen, room: g.room / 1000 });
       else if (g.wants === 'in') {
