@@ -122,7 +122,7 @@ describe('trivar profile on an installation', () => {
     const defaults = JSON.parse(bare.stdout).bank;
     const correctDefaults = JSON.parse(runTrivar(['correct', FILE, '--json']).stdout);
     expect(defaults.design).toMatchObject({ arrangement: correctDefaults.comparison.recommended, recommended: true, defaultsWords: 'target PF 0.95 on every line, never leading, every arrangement compared' });
-    expect(runTrivar(['profile', FILE, '--data', DATA, '--correction-bank']).stdout.replace(/\s+/g, ' ')).toContain("the file having no correction section: the correction study's defaults: target PF 0.95 on every line, never leading, every arrangement compared");
+    expect(runTrivar(['profile', FILE, '--data', DATA, '--correction-bank']).stdout.replace(/\s+/g, ' ')).toContain("with the correction study's defaults (the file has no correction section): target PF 0.95 on every line, never leading, every arrangement compared");
   });
 
   it('--correction-bank with no arrangement named: the one trivar correct recommends, and the report says so', () => {

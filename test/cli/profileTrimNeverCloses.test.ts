@@ -114,7 +114,7 @@ describe('no correction section: the correction study\'s defaults, as trivar cor
     expect(text.stderr).toBe('');
     expect(text.code).toBe(0);
     expect(text.stdout.replace(/\s+/g, ' ')).toContain(
-      "the delta bank trivar correct designs and recommends for this board, the file having no correction section: the correction study's defaults: target PF 0.95 on every line, never leading, every arrangement compared",
+      "the delta bank trivar correct designs and recommends for this board with the correction study's defaults (the file has no correction section): target PF 0.95 on every line, never leading, every arrangement compared",
     );
     const withDefaults = bankOf(NO_SECTION);
     const withSection = bankOf(BOARD);

@@ -133,7 +133,7 @@ export function bankLines(r: { readonly bank: ProfileResult['bank']; readonly be
           .join(', ')} at that percentile (a step closes only where the need left exceeds its threshold, so the hours below the target can be more)`
       : b.source === 'correction-study'
         ? b.design?.defaultsWords
-          ? `the ${b.design.words} trivar correct designs and recommends for this board, the file having no correction section: the correction study's defaults: ${b.design.defaultsWords}`
+          ? `the ${b.design.words} trivar correct designs and recommends for this board with the correction study's defaults (the file has no correction section): ${b.design.defaultsWords}`
           : b.design?.recommended
           ? `the ${b.design.words} trivar correct recommends for this board (the board file's correction section names no arrangement), as it designs it`
           : `the ${b.design?.words ?? 'bank'} of the board file's correction section, as trivar correct designs it`
