@@ -136,9 +136,10 @@ export interface ProfileBankResult {
   readonly measuredAt: string | null;
   /**
    * Board-total PF below the target while importing (where the controller measures), hours, and why, each
-   * interval by the simulated controller's state in it (belowTargetHours.ts): every step in; the shortfall under
-   * the response threshold; with an upper limit, steps too coarse for the band; settled with the open steps each
-   * too large for what is left; the controller on its way. All 0 where the PF is at or above the target in
+   * interval by the simulated controller's state in it (belowTargetHours.ts): every step in; steps open on the
+   * short lines fewer kvar than the shortfall (too small where the load falls short); with an upper limit, the
+   * open steps too coarse for the band; settled with the open steps each too large for what is left; the
+   * shortfall under the response threshold; the controller on its way. All 0 where the PF is at or above the target in
    * every importing interval.
    */
   readonly belowTarget: BelowTarget;
