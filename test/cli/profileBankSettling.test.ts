@@ -65,9 +65,12 @@ describe('an automatic bank on interval data coarser than its delay', () => {
     expect(minutes.bank.belowTarget).toEqual({
       hours: expect.closeTo(4 / 60, 9),
       allStepsInHours: 0,
+      shortOfStepsHours: 0,
+      shortOfStepsOpenKvar: 0,
       underResponseHours: 0,
       underResponseChannels: [],
       stepTooCoarseHours: 0,
+      stepTooCoarseChannels: [],
       openStepsTooLargeHours: 0,
       onTheWayHours: expect.closeTo(4 / 60, 9),
       openStepsTooLarge: null,

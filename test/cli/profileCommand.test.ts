@@ -59,17 +59,19 @@ describe('trivar profile', () => {
     expect(text).toMatch(/PF band 0\.97 to 0\.995 lagging/);
   });
 
-  it('--correction-bank: clear errors beside --bank or --pf, and on a board file without a correction section', () => {
+  it('--correction-bank: clear errors beside --bank or --pf; on a board file without a correction section, the correction study\'s defaults', () => {
     const both = runTrivar(['profile', BOARD, '--data', data, '--bank', '--correction-bank']);
     expect(both.code).toBe(2);
     expect(both.stderr).toMatch(/either --bank .* or --correction-bank/);
     expect(runTrivar(['profile', BOARD, '--data', data, '--correction-bank', '--pf', '0.9']).stderr).toMatch(/--pf sets the target of a bank sized from the profile/);
     const bare = join(dir, 'no-correction.yaml');
     writeFileSync(bare, readFileSync(`${ROOT}${BOARD}`, 'utf8').replace(/^correction:\n(?: .*\n)+/m, ''));
-    const none = runTrivar(['profile', bare, '--data', data, '--correction-bank']);
-    expect(none.code).toBe(2);
-    expect(none.stderr).toMatch(/--correction-bank: the board file has no correction section, so there is no correction study to take a bank from/);
-    expect(none.stderr).not.toMatch(/at .*\.js:\d+/);
+    // As trivar correct runs on it: the study's defaults, every arrangement compared, the recommended one simulated.
+    const none = runTrivar(['profile', bare, '--data', data, '--correction-bank', '--json']);
+    expect(none.stderr).toBe('');
+    expect(none.code).toBe(0);
+    const recommended = JSON.parse(runTrivar(['correct', bare, '--json']).stdout).recommended;
+    expect(JSON.parse(none.stdout).bank.design).toMatchObject({ arrangement: recommended, recommended: true, defaultsWords: 'target PF 0.95 on every line, never leading, every arrangement compared' });
   });
 
   it('JSON: the bank raises the billing power factor and reports its operations', () => {

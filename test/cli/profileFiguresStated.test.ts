@@ -28,14 +28,14 @@ describe('trivar profile figures', () => {
     const BUSY = 'test/fixtures/profile/print-shop-busy.csv';
     it('a 2.77 kvar need: one 3 kvar step that closes, not two 2.5 kvar steps of which the second never does', () => {
       // 20 kW at 9.34 kvar (PF 0.906): 9.34 − 20·tan(acos 0.95) = 2.77 kvar. Two 2.5 kvar steps would leave
-      // 0.27 kvar after the first, under the 0.67 × 2.5 = 1.68 kvar threshold: PF 0.946, below the target.
+      // 0.27 kvar after the first, under the 0.65 × 2.5 = 1.63 kvar threshold: PF 0.946, below the target.
       const json = JSON.parse(runTrivar(['profile', SHOP, '--data', BUSY, '--bank', '--json']).stdout);
       expect(json.bank.needKvar.ABC).toBeCloseTo(2.77, 2);
       // The bank starts settled at the first interval's load: the step is in from the start, no closing counted.
       expect(json.bank.steps.map((s: { kvar: number; closings: number }) => [s.kvar, s.closings])).toEqual([[3, 0]]);
       // 9.34 − 3.02 (3 kvar at 100.4 % voltage) = 6.32 kvar → 20/√(20² + 6.32²) = 0.9535.
       expect(json.bank.after.energy.billingPf).toBeCloseTo(0.9535, 3);
-      expect(json.bank.belowTarget).toEqual({ hours: 0, allStepsInHours: 0, underResponseHours: 0, underResponseChannels: [], stepTooCoarseHours: 0, openStepsTooLargeHours: 0, onTheWayHours: 0, openStepsTooLarge: null });
+      expect(json.bank.belowTarget).toEqual({ hours: 0, allStepsInHours: 0, shortOfStepsHours: 0, shortOfStepsOpenKvar: 0, underResponseHours: 0, underResponseChannels: [], stepTooCoarseHours: 0, stepTooCoarseChannels: [], openStepsTooLargeHours: 0, onTheWayHours: 0, openStepsTooLarge: null });
       expect(json.bank.targetOutOfReach).toBeNull();
     });
 
@@ -43,11 +43,11 @@ describe('trivar profile figures', () => {
       const args = ['profile', 'test/fixtures/profile/print-shop-coarse-steps.yaml', '--data', BUSY, '--bank'];
       const text = runTrivar(args).stdout.replace(/\s+/g, ' ');
       expect(text).toContain('billing power factor 0.906 → 0.946');
-      expect(text).toContain('board PF below 0.95 with the bank: 4.00 h of import — 4.00 h with the shortfall under the switching threshold (0.67 × 2.5 kvar = 1.68 kvar: no step closes for it)');
+      expect(text).toContain('board PF below 0.95 with the bank: 4.00 h of import — 4.00 h with the shortfall under the switching threshold (0.65 × 2.5 kvar = 1.63 kvar: no step closes for it)');
       const json = JSON.parse(runTrivar([...args, '--json']).stdout);
       // Settled at the first interval's load (one step in, its start-up closing not counted), then steady.
       expect(json.bank.steps.map((s: { closings: number }) => s.closings)).toEqual([0, 0]);
-      expect(json.bank.belowTarget).toEqual({ hours: 4, allStepsInHours: 0, underResponseHours: 4, underResponseChannels: [{ channel: 'ABC', smallestKvar: 2.5 }], stepTooCoarseHours: 0, openStepsTooLargeHours: 0, onTheWayHours: 0, openStepsTooLarge: null });
+      expect(json.bank.belowTarget).toEqual({ hours: 4, allStepsInHours: 0, shortOfStepsHours: 0, shortOfStepsOpenKvar: 0, underResponseHours: 4, underResponseChannels: [{ channel: 'ABC', smallestKvar: 2.5 }], stepTooCoarseHours: 0, stepTooCoarseChannels: [], openStepsTooLargeHours: 0, onTheWayHours: 0, openStepsTooLarge: null });
     });
 
     it('a need under every step size\'s threshold is warned, not passed silently', () => {

@@ -116,7 +116,13 @@ describe('trivar profile on an installation', () => {
     expect(bank.design).toEqual({ arrangement: 'star-bank', words: 'star bank', recommended: false });
     expect(bank.steps.map((s: { step: number }) => s.step)).toEqual(selection.steps.map((s: { output: number }) => s.output));
     expect(runTrivar(['profile', file, '--data', `${ROOT}${DATA}`, '--correction-bank', '--pf', '0.9']).stderr).toContain('--pf sets the target');
-    expect(runTrivar(['profile', FILE, '--data', DATA, '--correction-bank']).stderr).toContain('--correction-bank: the installation file has no correction section, so there is no correction study to take a bank from');
+    // No correction section: the correction study's defaults on the main board, as trivar correct takes them.
+    const bare = runTrivar(['profile', FILE, '--data', DATA, '--correction-bank', '--json']);
+    expect(bare.stderr).toBe('');
+    const defaults = JSON.parse(bare.stdout).bank;
+    const correctDefaults = JSON.parse(runTrivar(['correct', FILE, '--json']).stdout);
+    expect(defaults.design).toMatchObject({ arrangement: correctDefaults.comparison.recommended, recommended: true, defaultsWords: 'target PF 0.95 on every line, never leading, every arrangement compared' });
+    expect(runTrivar(['profile', FILE, '--data', DATA, '--correction-bank']).stdout.replace(/\s+/g, ' ')).toContain("with the correction study's defaults (the file has no correction section): target PF 0.95 on every line, never leading, every arrangement compared");
   });
 
   it('--correction-bank with no arrangement named: the one trivar correct recommends, and the report says so', () => {
@@ -129,7 +135,7 @@ describe('trivar profile on an installation', () => {
     const words = recommended === 'balancing-compensator' ? 'balancing compensator' : recommended.replace('-', ' ');
     expect(JSON.parse(r.stdout).bank.design).toEqual({ arrangement: recommended, words, recommended: true });
     const text = runTrivar(['profile', file, '--data', `${ROOT}${DATA}`, '--correction-bank']).stdout;
-    expect(text).toContain(`the ${words} trivar correct recommends for this board (the board file's correction section names no arrangement), as it designs it`);
+    expect(text.replace(/\s+/g, ' ')).toContain(`the ${words} trivar correct recommends for this board (the board file's correction section names no arrangement), as it designs it`);
   });
 
   it('the controller reads where the target says: the correction target\'s measuredAt, or profile.bank.measuredAt', () => {

@@ -27,12 +27,12 @@ describe('a bank that misses its target, in the report', () => {
     const table = checkIntervalSequence(reader.finish(), 'none');
     const input = { board: plan.board, drivers: planDrivers(plan), columns: driverColumns(plan, table.values, table.count), utcMs: table.utcMs, intervalMs: table.intervalMs, profile: spec.profile! };
     const r = studyProfile(input, { bank: true }).result;
-    // 2.77 kvar needed; after the first step 0.27 kvar is left, under 0.67 × 2.5 = 1.68 kvar: the second never closes.
+    // 2.77 kvar needed; after the first step 0.27 kvar is left, under 0.65 × 2.5 = 1.63 kvar: the second never closes.
     // The first step is in from the start (the bank starts settled; its start-up closing is not counted).
     expect(r.bank!.steps.map((s) => s.closings)).toEqual([0, 0]);
-    expect(r.bank!.belowTarget).toEqual({ hours: 2, allStepsInHours: 0, underResponseHours: 2, underResponseChannels: [{ channel: 'ABC', smallestKvar: 2.5 }], stepTooCoarseHours: 0, openStepsTooLargeHours: 0, onTheWayHours: 0, openStepsTooLarge: null });
+    expect(r.bank!.belowTarget).toEqual({ hours: 2, allStepsInHours: 0, shortOfStepsHours: 0, shortOfStepsOpenKvar: 0, underResponseHours: 2, underResponseChannels: [{ channel: 'ABC', smallestKvar: 2.5 }], stepTooCoarseHours: 0, stepTooCoarseChannels: [], openStepsTooLargeHours: 0, onTheWayHours: 0, openStepsTooLarge: null });
     const words = belowTargetWords(r.bank!)!;
-    expect(words).toBe('board PF below 0.95 with the bank: 2.00 h of import — 2.00 h with the shortfall under the switching threshold (0.67 × 2.5 kvar = 1.68 kvar: no step closes for it)');
+    expect(words).toBe('board PF below 0.95 with the bank: 2.00 h of import — 2.00 h with the shortfall under the switching threshold (0.65 × 2.5 kvar = 1.63 kvar: no step closes for it)');
     const facts = profileSection(r, []).blocks.flatMap((b) => (b.kind === 'facts' ? b.items : []));
     expect(facts).toContainEqual(['Hours below the target with the bank', words]);
   });

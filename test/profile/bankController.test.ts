@@ -144,9 +144,13 @@ describe('hours below the target with a banded bank', () => {
     expect(hoursBelowTarget(f, { targetPf: 0.97, upperPf: 0.995, responseShare: 0.67 }, { steps: tenAndTen, stepOn: open, phases: ['A'] }, 900_000)).toEqual({
       hours: 0.5,
       allStepsInHours: 0,
+      shortOfStepsHours: 0,
+      shortOfStepsOpenKvar: 0,
       underResponseHours: 0,
       underResponseChannels: [],
       stepTooCoarseHours: 0.25,
+      // The open 10 kvar steps against the 10 − 30·tan(acos 0.995) = 6.99 kvar of room before the upper limit.
+      stepTooCoarseChannels: [{ channel: 'ABC', smallestOpenKvar: 10, mostRoomKvar: expect.closeTo(10 - 30 * Math.tan(Math.acos(0.995)), 9) }],
       openStepsTooLargeHours: 0,
       onTheWayHours: 0.25,
       openStepsTooLarge: null,
@@ -163,10 +167,13 @@ describe('hours below the target with a banded bank', () => {
     expect(hoursBelowTarget(f, { targetPf: 0.97, upperPf: null, responseShare: 0.67 }, { steps: tenAndTen, stepOn, phases: ['A'] }, 900_000)).toEqual({
       hours: 0.75,
       allStepsInHours: 0.25,
+      shortOfStepsHours: 0,
+      shortOfStepsOpenKvar: 0,
       underResponseHours: 0.25,
       // The board's channel, short by 2.48 kvar, under its own 0.67 × 10 kvar threshold.
       underResponseChannels: [{ channel: 'ABC', smallestKvar: 10 }],
       stepTooCoarseHours: 0,
+      stepTooCoarseChannels: [],
       openStepsTooLargeHours: 0,
       onTheWayHours: 0.25,
       openStepsTooLarge: null,

@@ -9,6 +9,8 @@ import { belowTargetWords, checkIntervalSequence, createRowReader, driverColumns
 import { hoursBelowTarget, type BelowTarget } from '../../packages/core/src/profile/belowTargetHours.js';
 import type { StepChannel } from '../../packages/core/src/profile/bankController.js';
 import { simulateBank } from '../../packages/core/src/profile/simulateBank.js';
+import { stepsNeverClosed } from '../../packages/core/src/profile/stepsNeverClosed.js';
+import { neverClosedWords } from '../../packages/core/src/profile/profileWording.js';
 import type { IntervalFigures } from '../../packages/core/src/profile/solveBatch.js';
 
 const TAN_095 = Math.tan(Math.acos(0.95)); // 0.328684
@@ -20,7 +22,7 @@ function figures(kW: number[], kvar: number[]): IntervalFigures {
   return { count: kW.length, lineA: [zero], neutralA: zero, phaseV: [zero], lineToLineV: [], phaseW: [col(kW)], phaseVar: [col(kvar)], unbalancePercent: zero, lineDeviationPercent: zero };
 }
 
-const parts = (t: BelowTarget) => t.allStepsInHours + t.underResponseHours + t.stepTooCoarseHours + t.openStepsTooLargeHours + t.onTheWayHours;
+const parts = (t: BelowTarget) => t.allStepsInHours + (t.shortOfStepsHours ?? 0) + t.underResponseHours + t.stepTooCoarseHours + t.openStepsTooLargeHours + t.onTheWayHours;
 
 describe('a step waiting out its discharge is the controller on its way', () => {
   // An invented bakery: a 24 kW dough mixer at PF 0.72 on a stiff supply, one 20 kvar step. Mixer on for
@@ -49,9 +51,12 @@ describe('a step waiting out its discharge is the controller on its way', () => 
     expect(bank.belowTarget).toEqual({
       hours: expect.closeTo(2 / 60, 12),
       allStepsInHours: 0,
+      shortOfStepsHours: 0,
+      shortOfStepsOpenKvar: 0,
       underResponseHours: 0,
       underResponseChannels: [],
       stepTooCoarseHours: 0,
+      stepTooCoarseChannels: [],
       openStepsTooLargeHours: 0,
       onTheWayHours: expect.closeTo(2 / 60, 12),
       openStepsTooLarge: null,
@@ -76,9 +81,12 @@ describe('steps still open, each too large for what is left', () => {
     expect(t).toEqual({
       hours: 1,
       allStepsInHours: 0,
+      shortOfStepsHours: 0,
+      shortOfStepsOpenKvar: 0,
       underResponseHours: 0,
       underResponseChannels: [],
       stepTooCoarseHours: 0,
+      stepTooCoarseChannels: [],
       openStepsTooLargeHours: 1,
       onTheWayHours: 0,
       openStepsTooLarge: { channel: 'ABC', leastNeedKvar: expect.closeTo(9, 9), mostNeedKvar: expect.closeTo(11, 9), smallestOpenKvar: 20, closingShare: expect.closeTo(0.45, 9), closingStepKvar: expect.closeTo(9 / 0.67, 9) },
@@ -165,8 +173,18 @@ describe('the reasons add up to the hours below the target', () => {
           900_000,
           c.rowHours ? Float64Array.from(c.rowHours) : null,
         );
-        for (const part of [t.allStepsInHours, t.underResponseHours, t.stepTooCoarseHours, t.openStepsTooLargeHours, t.onTheWayHours]) expect(part).toBeGreaterThanOrEqual(0);
+        for (const part of [t.allStepsInHours, t.shortOfStepsHours ?? 0, t.underResponseHours, t.stepTooCoarseHours, t.openStepsTooLargeHours, t.onTheWayHours]) expect(part).toBeGreaterThanOrEqual(0);
         expect(Math.abs(parts(t) - t.hours)).toBeLessThanOrEqual(1e-12 * Math.max(1, t.hours));
+        // "Every step in" is said of exactly the intervals below the target with every step in, never of one
+        // with a step still open (counted here straight from the states, not through the classifier).
+        const tan = Math.tan(Math.acos(c.targetPf));
+        let allIn = 0;
+        for (let i = 0; i < c.count; i++) {
+          const w = c.w.reduce((a, col) => a + col[i]! * 1000, 0);
+          const q = c.q.reduce((a, col) => a + col[i]! * 1000, 0);
+          if (w > 0 && q > w * tan && stepOn.every((on) => on[i] === 1)) allIn += c.rowHours ? c.rowHours[i]! : 0.25;
+        }
+        expect(t.allStepsInHours).toBeCloseTo(allIn, 12);
         expect(t.openStepsTooLarge !== null).toBe(t.openStepsTooLargeHours > 0);
         // What would close for it is always smaller than what is open: a lower share, a smaller step.
         if (t.openStepsTooLarge) {
@@ -210,5 +228,63 @@ describe('the reasons add up to the hours below the target', () => {
       }),
       { numRuns: 150, seed: 7 },
     );
+  });
+});
+
+describe('steps still open, but not where the load falls short: the bank too small there, not "every step in"', () => {
+  // Invented: a three-phase 6 kvar step (in throughout) and a 5 kvar trim on phase C (open throughout), 10 kW
+  // on each phase. Per phase the target is 10·0.3287 = 3.287 kvar; the trim's threshold 0.65 × 5 = 3.25 kvar.
+  const three = (a: number[], b: number[], c: number[]): IntervalFigures => {
+    const zero = new Float64Array(a.length);
+    const col = (xs: number[]) => Float64Array.from(xs, (x) => x * 1000);
+    return { count: a.length, lineA: [zero, zero, zero], neutralA: zero, phaseV: [zero, zero, zero], lineToLineV: [], phaseW: [col(a.map(() => 10)), col(b.map(() => 10)), col(c.map(() => 10))], phaseVar: [col(a), col(b), col(c)], unbalancePercent: zero, lineDeviationPercent: zero };
+  };
+  const steps = [
+    { kvar: 6, channel: 'ABC' as const },
+    { kvar: 5, channel: 'C' as const },
+  ];
+  // 1: A 8, B 8, C 3.5 — board short by 19.5 − 9.86 = 9.64 kvar; C short by 0.21 under its threshold, and the
+  //    5 kvar open there could not cover 9.64 anyway: too small where the load falls short.
+  // 2: A 8, B 8, C 3 — C at its target: nothing open on the short lines.
+  // 3: A 4, B 4, C 8 — C short by 4.71 > 3.25: the trim may close, the controller on its way.
+  // 4: A 3.8, B 3.8, C 5.287 — board short by 3.03, C by 2.00 under 3.25, with 5 kvar open there: under the threshold.
+  const f = three([8, 8, 4, 3.8], [8, 8, 4, 3.8], [3.5, 3, 8, 5.287]);
+  const stepOn = [Uint8Array.from([1, 1, 1, 1]), new Uint8Array(4)];
+  const settings = { targetPf: 0.95, upperPf: null, responseShare: 0.65 };
+  const t = hoursBelowTarget(f, settings, { steps, stepOn, phases: ['A', 'B', 'C'] }, 900_000);
+
+  it('each interval in its own reason, and none of them "every step in"', () => {
+    expect(t).toMatchObject({ hours: 1, allStepsInHours: 0, shortOfStepsHours: 0.5, shortOfStepsOpenKvar: 5, underResponseHours: 0.25, underResponseChannels: [{ channel: 'C', smallestKvar: 5 }], onTheWayHours: 0.25 });
+    expect(parts(t)).toBeCloseTo(t.hours, 12);
+  });
+
+  it('in words: the open kvar on the short lines against the shortfall', () => {
+    const b = {
+      source: 'board-file-steps',
+      measuredAt: null,
+      steps: steps.map((s, k) => ({ step: k + 1, ...s, closings: 0, openings: 0, closingsPerYear: 0 })),
+      placeWords: { ABC: 'three-phase', C: 'on phase C' },
+      settings: { targetPf: 0.95, upperPf: null, responseShare: 0.65 },
+      belowTarget: t,
+    } as unknown as ProfileBankResult;
+    const words = belowTargetWords(b)!;
+    expect(words).toContain('0.50 h with the steps still open on the lines short of the target (at most 5.0 kvar) fewer than the shortfall, the others answering to lines at their target (the bank too small where that load falls short)');
+    expect(words).not.toContain('every step in');
+  });
+
+  it('the trim never in service: why, hour by hour, from the controller\'s own rule', () => {
+    const [never, ...more] = stepsNeverClosed(f, { ...settings, upperPf: undefined, delaySeconds: 0, reconnectSeconds: 0 } as never, { steps, stepOn, numbers: [1, 2], phases: ['A', 'B', 'C'] }, 900_000);
+    expect(more).toHaveLength(0);
+    // Phase C short in 1, 3 and 4: under its own 3.25 kvar threshold in 1 (0.21) and 4 (2.00), free to close in 3.
+    expect(never).toMatchObject({ step: 2, channel: 'C', kvar: 5, shortHours: 0.75, pastLimitHours: 0, underThresholdHours: 0.5, waitingHours: 0.25, mostRoomKvar: null });
+    expect(never!.mostNeedKvar).toBeCloseTo(5.287 - 10 * TAN_095, 9);
+    // With a band up to unity: in 1 phase C reads 3.5 kvar lagging, under the trim's 5 kvar, so it would lead.
+    const banded = stepsNeverClosed(f, { targetPf: 0.95, upperPf: 1, responseShare: 0.65, delaySeconds: 0, reconnectSeconds: 0 }, { steps, stepOn, numbers: [1, 2], phases: ['A', 'B', 'C'] }, 900_000)[0]!;
+    expect(banded).toMatchObject({ shortHours: 0.75, pastLimitHours: 0.25, mostRoomKvar: expect.closeTo(3.5, 9), underThresholdHours: 0.25, waitingHours: 0.25 });
+    expect(neverClosedWords(banded, 'on phase C', { responseShare: 0.65, upperPf: 1 }, 11)).toBe(
+      "step 2 (5.0 kvar on phase C) never closed over the data: of the 0.75 h its lines read short of the target, in 0.25 h closing it would have carried them past unity into leading at its rated 5.0 kvar (at most 3.5 kvar lagging there); in 0.25 h the need there, at most 2.00 kvar, stayed under its own threshold (0.65 × 5.0 = 3.25 kvar); in 0.25 h it could have closed but waited (the delay, its discharge, or another step first) — 5.0 of the bank's 11.0 kvar unused at these loads",
+    );
+    // A step that was in at some time is not listed.
+    expect(stepsNeverClosed(f, { targetPf: 0.95, responseShare: 0.65, delaySeconds: 0, reconnectSeconds: 0 }, { steps, stepOn: [stepOn[0]!, Uint8Array.from([0, 0, 1, 0])], numbers: [1, 2], phases: ['A', 'B', 'C'] }, 900_000)).toEqual([]);
   });
 });

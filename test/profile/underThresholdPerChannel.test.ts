@@ -15,9 +15,9 @@ const DATA = 'test/fixtures/profile/potting-shed-phase-steps.csv';
 const TAN_095 = Math.tan(Math.acos(0.95)); // 0.328684
 
 describe('under the switching threshold, per channel', () => {
-  it('the pump alone on B: B short by 1.26 kvar, quoted against B\'s 3.35 kvar threshold, not A\'s 0.67 kvar', () => {
+  it('the pump alone on B: B short by 1.26 kvar, quoted against B\'s 3.25 kvar threshold, not A\'s 0.65 kvar', () => {
     // Pump at half load: 3 kW, 3·0.75 = 2.25 kvar; need 2.25 − 3·0.3287 = 1.264 kvar. That is above A's
-    // 0.67 × 1 = 0.67 kvar, so A's threshold cannot explain it; B's own is 0.67 × 5 = 3.35 kvar.
+    // 0.65 × 1 = 0.65 kvar, so A's threshold cannot explain it; B's own is 0.65 × 5 = 3.25 kvar.
     expect(2.25 - 3 * TAN_095).toBeCloseTo(1.264, 3);
     const dir = mkdtempSync(join(tmpdir(), 'trivar-per-channel-'));
     const data = join(dir, 'pump-alone.csv');
@@ -26,22 +26,22 @@ describe('under the switching threshold, per channel', () => {
     expect(r.stderr).toBe('');
     const text = r.stdout.replace(/\s+/g, ' ');
     expect(text).toContain(
-      'board PF below 0.95 with the bank: 2.00 h of import — 2.00 h with the shortfall on phase B under the switching threshold there (0.67 × 5.0 kvar = 3.35 kvar: no step closes for it)',
+      'board PF below 0.95 with the bank: 2.00 h of import — 2.00 h with the shortfall on phase B under the switching threshold there (0.65 × 5.0 kvar = 3.25 kvar: no step closes for it)',
     );
-    expect(text).not.toContain('0.67 × 1.0 kvar');
+    expect(text).not.toContain('0.65 × 1.0 kvar');
     const json = JSON.parse(runTrivar(['profile', BOARD, '--data', data, '--bank', '--json']).stdout);
     expect(json.bank.belowTarget).toMatchObject({ hours: 2, underResponseHours: 2, underResponseChannels: [{ channel: 'B', smallestKvar: 5 }] });
   });
 
   it('washer and pump both short, each under its own threshold: both thresholds quoted, each with its phase', () => {
-    // Washer: 3 kW at PF 0.93, 3·0.3952 = 1.186 kvar, need 0.200 kvar < 0.67 (A). Pump as above, 1.264 < 3.35 (B).
+    // Washer: 3 kW at PF 0.93, 3·0.3952 = 1.186 kvar, need 0.200 kvar < 0.65 (A). Pump as above, 1.264 < 3.25 (B).
     expect(3 * Math.tan(Math.acos(0.93)) - 3 * TAN_095).toBeCloseTo(0.2, 2);
     const r = runTrivar(['profile', BOARD, '--data', DATA, '--bank', '--json']);
     expect(r.stderr).toBe('');
     const bank = JSON.parse(r.stdout).bank as ProfileBankResult;
     expect(bank.belowTarget).toMatchObject({ hours: 4, underResponseHours: 4, underResponseChannels: [{ channel: 'A', smallestKvar: 1 }, { channel: 'B', smallestKvar: 5 }] });
     expect(belowTargetWords(bank)).toBe(
-      "board PF below 0.95 with the bank: 4.00 h of import — 4.00 h with the shortfall under each channel's own switching threshold (0.67 × 1.0 kvar = 0.67 kvar on phase A, 0.67 × 5.0 kvar = 3.35 kvar on phase B: no step closes for it)",
+      "board PF below 0.95 with the bank: 4.00 h of import — 4.00 h with the shortfall under each channel's own switching threshold (0.65 × 1.0 kvar = 0.65 kvar on phase A, 0.65 × 5.0 kvar = 3.25 kvar on phase B: no step closes for it)",
     );
   });
 
@@ -72,8 +72,8 @@ describe('under the switching threshold, per channel', () => {
   });
 
   it('a split-phase board: each line-to-neutral step named the board\'s way, never "phase" or "three-phase"', () => {
-    // Invented: a creek cabin, a 1.5 kW fan at PF 0.93 on one line (0.10 kvar short, under 0.67) and a 3 kW pump
-    // at PF 0.8 at half load on the other (1.5 kW, 1.125 − 0.493 = 0.63 kvar short, under 3.35).
+    // Invented: a creek cabin, a 1.5 kW fan at PF 0.93 on one line (0.10 kvar short, under 0.65) and a 3 kW pump
+    // at PF 0.8 at half load on the other (1.5 kW, 1.125 − 0.493 = 0.63 kvar short, under 3.25).
     const dir = mkdtempSync(join(tmpdir(), 'trivar-per-channel-'));
     const board = join(dir, 'creek-cabin.yaml');
     writeFileSync(
@@ -92,7 +92,7 @@ describe('under the switching threshold, per channel', () => {
     writeFileSync(data, 'time,Fan [x],Pump [x]\n2026-05-11T06:00,1,0.5\n2026-05-11T06:30,1,0.5\n');
     const text = runTrivar(['profile', board, '--data', data, '--bank']).stdout.replace(/\s+/g, ' ');
     expect(text).toContain(
-      "1.00 h with the shortfall under each channel's own switching threshold (0.67 × 1.0 kvar = 0.67 kvar line-to-neutral on A, 0.67 × 5.0 kvar = 3.35 kvar line-to-neutral on B: no step closes for it)",
+      "1.00 h with the shortfall under each channel's own switching threshold (0.65 × 1.0 kvar = 0.65 kvar line-to-neutral on A, 0.65 × 5.0 kvar = 3.25 kvar line-to-neutral on B: no step closes for it)",
     );
   });
 });

@@ -86,7 +86,7 @@ const what = (c: FileCorrection) => `the ${c.recommended ? `recommended ${c.reco
  * simulated and what can: the simulator switches capacitor steps, three-phase or from a line to the
  * neutral, with the study's controller. Never a partial bank passed off as the study's.
  */
-export function switchedBankOf(c: FileCorrection, option: string): SwitchingFromBank {
+export function switchedBankOf(c: FileCorrection, option: string, fromDefaults = false): SwitchingFromBank {
   const r = c.report;
   const label = labellerOf(r.verification.before.conventions.phaseNames);
   const system = r.verification.before.board.system;
@@ -110,5 +110,18 @@ export function switchedBankOf(c: FileCorrection, option: string): SwitchingFrom
       `${option}: no step of ${what(c)} is one the simulator can switch (its steps are on ${across}, several branches to a step that is not three-phase), so none of it can be simulated; ${accepted}`,
     );
   }
-  return { ...bank, design: { arrangement: r.arrangement, words: arrangementNames(system, r.verification.before.conventions.region)[r.arrangement], recommended: c.recommended !== null } };
+  const design = { arrangement: r.arrangement, words: arrangementNames(system, r.verification.before.conventions.region)[r.arrangement], recommended: c.recommended !== null };
+  return { ...bank, design: fromDefaults ? { ...design, defaultsWords: studyDefaultsWords(r) } : design };
+}
+
+/**
+ * The correction study's defaults in words, read off the study that ran with them (its resolved target), for a
+ * file with no correction section: `trivar correct` runs on such a file with these, and so does
+ * `profile --correction-bank`, so the two agree and the reader is told what stood in for the section.
+ */
+function studyDefaultsWords(r: CorrectionReport): string {
+  const t = r.verification.target;
+  const where = t.definition === 'per-line' ? ' on every line' : '';
+  const leading = t.leading === 'never' ? ', never leading' : '';
+  return `target PF ${t.pf.toFixed(2)}${where}${leading}, every arrangement compared`;
 }

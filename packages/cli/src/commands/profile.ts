@@ -89,12 +89,9 @@ export function refusePfWithoutBank(options: ProfileCommandOptions): void {
  * board file's correction section), as simulator steps and controller settings.
  */
 export function designedBankOf(spec: ReturnType<typeof parseBoard>, board: ReturnType<typeof normaliseBoard>): SwitchingFromBank {
-  const study = spec.correction;
-  if (!study)
-    throw new UsageError(
-      '--correction-bank: the board file has no correction section, so there is no correction study to take a bank from (add correction: with an arrangement, or without one for the arrangement trivar correct recommends)',
-    );
-  const point = study.target?.measuredAt;
+  // No correction section: the study's defaults, as trivar correct runs on such a file (the output says so).
+  const study = spec.correction ?? {};
+  const point = spec.correction?.target?.measuredAt;
   if (point !== undefined && point !== board.name)
     throw new UsageError(
       `--correction-bank: the correction section measures its target at ${JSON.stringify(point)} (target.measuredAt); on a board file the simulated controller reads the board's own incomer, so write the board as an installation file with this one board under boards: to have it read there`,
@@ -105,7 +102,7 @@ export function designedBankOf(spec: ReturnType<typeof parseBoard>, board: Retur
   } catch (error) {
     throw inFileSection(error);
   }
-  return switchedBankOf(corrected, '--correction-bank');
+  return switchedBankOf(corrected, '--correction-bank', spec.correction === undefined);
 }
 
 export async function computeProfileStudy(spec: ReturnType<typeof parseBoard>, data: string, options: ProfileCommandOptions, io: CliIo): Promise<ProfileStudy> {

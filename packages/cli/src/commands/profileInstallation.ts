@@ -51,11 +51,8 @@ function designedInstallationBank(
   installation: Installation,
   boardOption: string | undefined,
 ): { bank: SwitchingFromBank; board: string | undefined; measuredAt: string | undefined } {
-  if (!spec.correction)
-    throw new UsageError(
-      '--correction-bank: the installation file has no correction section, so there is no correction study to take a bank from (add correction: with its board, and an arrangement or none for the arrangement trivar correct recommends)',
-    );
-  const { board: fileBoard, ...study } = spec.correction;
+  // No correction section: the study's defaults on the main board (or --board), as trivar correct runs on such a file.
+  const { board: fileBoard, ...study } = spec.correction ?? {};
   if (fileBoard !== undefined) installationBoardIndex(installation, fileBoard, 'correction.board');
   const board = boardOption ?? fileBoard;
   let studied;
@@ -65,7 +62,7 @@ function designedInstallationBank(
     throw inFileSection(error);
   }
   // The controller reads where the study's target is measured (target.measuredAt), as trivar correct sets it up.
-  return { bank: switchedBankOf(studied, '--correction-bank'), board, measuredAt: studied.measuredAt };
+  return { bank: switchedBankOf(studied, '--correction-bank', spec.correction === undefined), board, measuredAt: studied.measuredAt };
 }
 
 /** The file's `profile.scenarios` through every board at once (no interval data). */

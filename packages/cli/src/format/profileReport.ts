@@ -132,7 +132,9 @@ export function bankLines(r: { readonly bank: ProfileResult['bank']; readonly be
           .map(([c, v]) => `${fixed(v, 1)} kvar ${b.placeWords[c] ?? c}`)
           .join(', ')} at that percentile (a step closes only where the need left exceeds its threshold, so the hours below the target can be more)`
       : b.source === 'correction-study'
-        ? b.design?.recommended
+        ? b.design?.defaultsWords
+          ? `the ${b.design.words} trivar correct designs and recommends for this board with the correction study's defaults (the file has no correction section): ${b.design.defaultsWords}`
+          : b.design?.recommended
           ? `the ${b.design.words} trivar correct recommends for this board (the board file's correction section names no arrangement), as it designs it`
           : `the ${b.design?.words ?? 'bank'} of the board file's correction section, as trivar correct designs it`
         : 'steps as given in profile.bank.steps';
@@ -141,7 +143,7 @@ export function bankLines(r: { readonly bank: ProfileResult['bank']; readonly be
   const band =
     set.upperPf === null ? `target PF ${pf(set.targetPf)}` : set.upperPf >= 1 ? `target PF ${pf(set.targetPf)} up to unity, never leading` : `PF band ${pf(set.targetPf)} to ${pf(set.upperPf)} lagging`;
   const lines = [
-    `  ${sizing}`,
+    wrapText(sizing, '  ', '    '),
     `  ${b.steps.length} switched step${b.steps.length === 1 ? '' : 's'}, ${fixed(b.totalKvar, 1)} kvar in all at nominal voltage${b.fixedKvar > 0 ? `; fixed part ${fixed(b.fixedKvar, 1)} kvar, always connected` : ''}`,
     ...(b.sizingNotes ?? []).map((w) => wrapText(w, '  ', '    ')),
     ...(b.notSimulated
@@ -162,6 +164,7 @@ export function bankLines(r: { readonly bank: ProfileResult['bank']; readonly be
       b.steps.map((s) => [String(s.step), b.placeWords[s.channel] ?? s.channel, fixed(s.kvar, 1), thousands(s.closings), thousands(s.closingsPerYear)]),
     ),
     wrapText(b.closingsBasis.words, '  ', '    '),
+    ...(b.neverClosed ?? []).map((n) => wrapText(`! ${n.words}`, '  ', '    ')),
     `  typical limit ${thousands(b.operationsPerYearLimit)} operations a year per step (IEC 60831-1 practice); a capacitor contactor lasts about ${thousands(b.contactorLifeOperations)} operations${
       b.yearsToContactorLife === null ? '' : ` — the busiest step ${contactorLifeWords(b.yearsToContactorLife)}`
     }`,

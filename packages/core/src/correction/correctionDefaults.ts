@@ -4,6 +4,15 @@
  */
 import { CAPACITOR_DISCHARGE } from './capacitorDischarge.js';
 
+/**
+ * The automatic controller's response threshold as a share of C/k (the reactive current of the smallest
+ * step): a step closes only while the need exceeds this share of it. Inside the usual 0.6–0.7 that keeps a
+ * controller from hunting (methods notes §10, from memory, common practice). One convention for every
+ * controller trivar sets or simulates: the correction study's C/k setting and the profile's switching
+ * threshold (profile.bank.responseShare's default) are the same setting, so they take the same share.
+ */
+export const RESPONSE_SHARE_OF_CK = 0.65;
+
 export const CORRECTION_DEFAULTS = {
   /** A common tariff threshold (see the PFC notes: 0.90–0.95 is usual). */
   pf: 0.95,
@@ -33,11 +42,8 @@ export const CORRECTION_DEFAULTS = {
   ctHeadroom: 1.25,
   /** "Tens of seconds" between switching decisions (methods notes §10, common practice). */
   switchingDelayS: 30,
-  /**
-   * Response threshold set at this share of C/k, inside the usual 0.6–0.7 that
-   * keeps a controller from hunting (methods notes §10, from memory).
-   */
-  ckSettingFraction: 0.65,
+  /** Response threshold set at this share of C/k (RESPONSE_SHARE_OF_CK, with its reason). */
+  ckSettingFraction: RESPONSE_SHARE_OF_CK,
   /** A C/k setting below this (A, on the CT secondary) is finer than controllers usually resolve (common practice, no source). */
   ckResolutionA: 0.02,
   /**

@@ -8,7 +8,7 @@ import type { StepChannel, SwitchedStep, SwitchingSettings } from './bankControl
 import { CAPACITOR_DISCHARGE, defaultPractice } from '../correction/capacitorDischarge.js';
 import { maximumOf } from './intervalStatistics.js';
 import { PROFILE_DEFAULTS } from './profileDefaults.js';
-import { closingsBasisWords, EXTRAPOLATION_BELOW_HOURS, fewerStepsWords, frequentSwitchingWords, noBankWords, noVoltageRiseWords, shortReconnectWords, stepPlaceWords, switchingWithinIntervalWords, targetOutOfReachWords, type NoBankSized } from './profileWording.js';
+import { closingsBasisWords, EXTRAPOLATION_BELOW_HOURS, fewerStepsWords, frequentSwitchingWords, neverClosedWords, noBankWords, noVoltageRiseWords, shortReconnectWords, stepPlaceWords, switchingWithinIntervalWords, targetOutOfReachWords, type NoBankSized } from './profileWording.js';
 import type { ProfileSpec } from './profileSpec.js';
 import type { BankRun } from './simulateBank.js';
 import { sizeBankSteps } from './sizeBankSteps.js';
@@ -17,6 +17,7 @@ import type { ProfileSummary } from './summariseFigures.js';
 import type { ProfileBankResult, ProfileStudyOptions } from './studyProfile.js';
 import { belowTargetStates } from './belowTargetHours.js';
 import { trySettledShort } from './settledShortTrial.js';
+import { stepsNeverClosed } from './stepsNeverClosed.js';
 import { judgedNominalOf } from '../board/nominalVoltages.js';
 import { InputError, inputIssue, type InputIssue } from '../errors.js';
 import { conventionsOf } from '../board/conventions/boardConventions.js';
@@ -176,6 +177,10 @@ export function bankOverProfile(input: BankOverProfileInput, options: Pick<Profi
     const settledShortTrial = belowTarget.openStepsTooLarge
       ? trySettledShort({ steps, fixed, settings, settledShort, closingShare: belowTarget.openStepsTooLarge.closingShare, simulate: input.simulate, asIs: run, intervalMs: input.intervalMs, intervals: n, phases: board.phases, rowHours: input.rowHours ?? null })
       : null;
+    const neverClosed = stepsNeverClosed(run.meterFigures ?? run.figures, settings, { steps, stepOn: run.stepOn, numbers: stepRuns.map((s) => s.step), phases: board.phases }, input.intervalMs, input.rowHours ?? null).map((n) => ({
+      ...n,
+      words: neverClosedWords(n, stepPlaceWords(board, n.channel), { responseShare: settings.responseShare, upperPf: upperPf ?? null }, totalKvar),
+    }));
     const bank: ProfileBankResult = {
       source,
       design: designed?.design ?? null,
@@ -213,6 +218,7 @@ export function bankOverProfile(input: BankOverProfileInput, options: Pick<Profi
       measuredAt: input.meterPoint ?? null,
       belowTarget,
       settledShortTrial,
+      neverClosed,
       targetOutOfReach,
       after: input.summarise(run.figures),
     };

@@ -12,13 +12,26 @@ import type { IntervalFigures } from './solveBatch.js';
 
 /**
  * Board-total PF below the target while importing (where the controller measures), hours, split by why;
- * the five parts add up to `hours`. A channel is what a step answers to (the board for a three-phase step,
- * its phase or line pair for the others); the first reason any channel short of the target gives decides.
+ * the six parts add up to `hours`. A channel is what a step answers to (the board for a three-phase step,
+ * its phase or line pair for the others). In each interval the first of these that holds decides: the
+ * controller on its way; every step in; the steps still open on the channels short of the target fewer kvar
+ * than the board's shortfall (the rest answer to lines at their target); else why those open steps stay out —
+ * each would carry its lines past the upper limit, each is kept out by its own threshold, or the channel's
+ * shortfall is under its threshold.
  */
 export interface BelowTarget {
   readonly hours: number;
-  /** Every step in (every step of the channel that falls short): the bank too small for that load. */
+  /** Every step of the bank in: the bank too small for that load. */
   readonly allStepsInHours: number;
+  /**
+   * Steps still open, but those on the channels short of the target add up to less than the board's shortfall
+   * (none at all where every step answering to those lines is in): the bank too small where the load falls
+   * short, the open steps answering to lines already at their target. Absent from results written before it
+   * was told apart (they counted such hours as `allStepsInHours`).
+   */
+  readonly shortOfStepsHours?: number;
+  /** The kvar open on the channels short of the target in those hours, the most of any interval (0: none open there). */
+  readonly shortOfStepsOpenKvar?: number;
   /** The shortfall under the controller's response threshold (responseShare × the channel's smallest step): no step closes for it. */
   readonly underResponseHours: number;
   /**
@@ -26,8 +39,14 @@ export interface BelowTarget {
    * their smallest step (the threshold is responseShare × it): the words quote each channel's own.
    */
   readonly underResponseChannels: readonly { readonly channel: StepChannel; readonly smallestKvar: number }[];
-  /** With an upper limit: every step still open would carry the PF past it (steps too coarse for the band at that load). */
+  /** With an upper limit: every step still open on a channel short of the target would carry it past that limit (steps too coarse for the band at that load). */
   readonly stepTooCoarseHours: number;
+  /**
+   * Those channels, in the steps' order: the smallest step open there in those hours and the most kvar the
+   * channel could take before its upper limit in any of them (its room), so the words show the step against
+   * what it would have to fit. Absent from results written before they were kept.
+   */
+  readonly stepTooCoarseChannels?: readonly { readonly channel: StepChannel; readonly smallestOpenKvar: number; readonly mostRoomKvar: number }[];
   /**
    * Settled with steps still open, each too large for what is left: the need is above the response threshold,
    * but each open step closes only for a need above responseShare × its own kvar, and that is above the need.
@@ -95,11 +114,14 @@ export function belowTargetStates(
   // Counted in intervals (each row's share of one where rows are irregular), then made hours.
   let below = 0;
   let allIn = 0;
+  let shortOf = 0;
+  let shortOfOpenKvar = 0;
   let under = 0;
   let coarse = 0;
   let tooLarge = 0;
   let onTheWay = 0;
   const underChannels = new Set<StepChannel>();
+  const coarseChannels = new Map<StepChannel, { smallestOpen: number; mostRoom: number }>();
   const settledShort: SettledShortInterval[] = [];
   let remedy: { channels: Set<StepChannel>; least: number; most: number; smallestOpen: number; share: number; step: number } | null = null;
   for (let i = 0; i < f.count; i++) {
@@ -117,33 +139,47 @@ export function belowTargetStates(
       continue;
     }
     let moving = false;
-    let full = false;
-    let pastBand = false;
+    // kvar open on the channels short of the target, and why each of those channels keeps its open steps out.
+    let openOnShort = 0;
+    const pastBand: { channel: StepChannel; smallestOpen: number; room: number }[] = [];
     const stuck: { channel: StepChannel; need: number; smallestOpen: number; step: number }[] = [];
     const short: StepChannel[] = [];
     for (const c of channels) {
       const g = rule.gauge(channelReadingAt(f, phaseIndex, c.channel, i), c.smallestKvar);
-      const open = c.members.filter((k) => stepOn[k]![i] !== 1);
       if (g.need <= 0) {
         // Content, or over-corrected with a step it would take out.
         if (g.wants === 'out' && c.members.some((k) => stepOn[k]![i] === 1 && rule.mayOpen(steps[k]!.kvar, g))) moving = true;
         continue;
       }
-      if (g.wants !== 'in') short.push(c.channel);
-      if (!open.length) full = true;
-      else if (g.wants === 'in' && open.some((k) => rule.mayClose(steps[k]!.kvar, g))) moving = true;
-      else if (rule.banded && open.every((k) => steps[k]!.kvar * 1000 > g.room)) pastBand = true;
+      const open = c.members.filter((k) => stepOn[k]![i] !== 1);
+      if (!open.length) continue;
+      let smallestOpen = Infinity;
+      for (const k of open) {
+        openOnShort += steps[k]!.kvar;
+        smallestOpen = Math.min(smallestOpen, steps[k]!.kvar);
+      }
+      if (g.wants === 'in' && open.some((k) => rule.mayClose(steps[k]!.kvar, g))) moving = true;
+      else if (rule.banded && open.every((k) => steps[k]!.kvar * 1000 > g.room)) pastBand.push({ channel: c.channel, smallestOpen, room: g.room / 1000 });
       else if (g.wants === 'in') {
         // Every open step is kept out by its threshold. In a band too: one within the room is kept out by its
         // threshold alone, so need ÷ responseShare ≤ its kvar ≤ room, and a step past the room is larger still;
         // a further step under need ÷ responseShare is then within the room as well.
-        stuck.push({ channel: c.channel, need: g.need / 1000, smallestOpen: Math.min(...open.map((k) => steps[k]!.kvar)), step: g.need / 1000 / settings.responseShare });
-      }
+        stuck.push({ channel: c.channel, need: g.need / 1000, smallestOpen, step: g.need / 1000 / settings.responseShare });
+      } else short.push(c.channel);
     }
     if (moving) onTheWay += each;
-    else if (full) allIn += each;
-    else if (pastBand) coarse += each;
-    else if (stuck.length) {
+    // The open steps that answer to the lines falling short could not make up the board's shortfall even all
+    // in (kvar at nominal voltage against the var read, as the controller weighs a step against its need).
+    else if (openOnShort * 1000 < q - w * tanTarget) {
+      shortOf += each;
+      shortOfOpenKvar = Math.max(shortOfOpenKvar, openOnShort);
+    } else if (pastBand.length) {
+      coarse += each;
+      for (const p of pastBand) {
+        const seen = coarseChannels.get(p.channel);
+        coarseChannels.set(p.channel, seen ? { smallestOpen: Math.min(seen.smallestOpen, p.smallestOpen), mostRoom: Math.max(seen.mostRoom, p.room) } : { smallestOpen: p.smallestOpen, mostRoom: p.room });
+      }
+    } else if (stuck.length) {
       tooLarge += each;
       settledShort.push({ index: i, needKvar: new Map(stuck.map((s) => [s.channel, s.need])) });
       for (const s of stuck) {
@@ -159,6 +195,8 @@ export function belowTargetStates(
         }
       }
     } else {
+      // The open kvar on short channels covers the shortfall, so some short channel has open steps; none
+      // is on its way, past the band or stuck, so each is under its threshold.
       under += each;
       for (const c of short) underChannels.add(c);
     }
@@ -166,9 +204,12 @@ export function belowTargetStates(
   const belowTarget: BelowTarget = {
     hours: below * h,
     allStepsInHours: allIn * h,
+    shortOfStepsHours: shortOf * h,
+    shortOfStepsOpenKvar: shortOfOpenKvar,
     underResponseHours: under * h,
     underResponseChannels: channels.filter((c) => underChannels.has(c.channel)).map((c) => ({ channel: c.channel, smallestKvar: c.smallestKvar })),
     stepTooCoarseHours: coarse * h,
+    stepTooCoarseChannels: channels.filter((c) => coarseChannels.has(c.channel)).map((c) => ({ channel: c.channel, smallestOpenKvar: coarseChannels.get(c.channel)!.smallestOpen, mostRoomKvar: coarseChannels.get(c.channel)!.mostRoom })),
     openStepsTooLargeHours: tooLarge * h,
     onTheWayHours: onTheWay * h,
     openStepsTooLarge: remedy

@@ -4,6 +4,8 @@
  * study's one definition (correction/capacitorDischarge.ts); the voltage unbalance threshold, and the index
  * it judges, is the board region's (board/conventions/unbalanceLimits.ts).
  */
+import { CORRECTION_DEFAULTS, RESPONSE_SHARE_OF_CK } from '../correction/correctionDefaults.js';
+
 /**
  * The lowest switching threshold, as a share of the smallest step: below half a step, a need between
  * r × step and (1 − r) × step closes the step, which leaves the board over-corrected by more than r × step,
@@ -14,14 +16,14 @@ export const MIN_RESPONSE_SHARE = 0.5;
 export const PROFILE_DEFAULTS = {
   /** Common demand-meter window (common practice, no source). */
   demandWindowMinutes: 15,
-  /** A usual tariff target; the correction study uses the same default. */
-  targetPf: 0.95,
+  /** A usual tariff target: the correction study's default, so the two agree. */
+  targetPf: CORRECTION_DEFAULTS.pf,
   /** Size the bank to cover the kvar the target needs in 95 % of intervals (that percentile of the need): the last few per cent of peaks cost the most kvar. */
   coverShare: 0.95,
   /** Controllers commonly have 6, 8 or 12 outputs (METHODS §10, common practice). */
   stepCount: 6,
-  /** C/k set at 0.6–0.7 of the smallest step to avoid hunting (METHODS §10, from memory). */
-  responseShare: 0.67,
+  /** The switching threshold's share of the smallest step: the correction study's C/k setting share (RESPONSE_SHARE_OF_CK, with its reason). */
+  responseShare: RESPONSE_SHARE_OF_CK,
   /** Switching delay of tens of seconds (METHODS §10, common practice). */
   delaySeconds: 30,
   /** IEC 60831-1 manufacturer note: ≤ 5000 switching operations per year (METHODS §4, confirmed secondary). */

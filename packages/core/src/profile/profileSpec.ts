@@ -8,7 +8,7 @@ import * as z from 'zod';
 import { labelSchema, nameReferenceSchema, nameSchema } from '../board/nameSchemas.js';
 import { CURRENCY_MAX_CHARACTERS } from '../board/boardRanges.js';
 // The lowest switching threshold, and why, is in profileDefaults.ts: the report's advice reads it without zod.
-import { MIN_RESPONSE_SHARE } from './profileDefaults.js';
+import { MIN_RESPONSE_SHARE, PROFILE_DEFAULTS } from './profileDefaults.js';
 
 export { MIN_RESPONSE_SHARE };
 
@@ -66,7 +66,7 @@ export const profileBankSchema = z
       .max(1.5, { message: RESPONSE_SHARE_RANGE })
       .optional()
       .describe(
-        `switching threshold as a share of the smallest step (C/k setting), ${MIN_RESPONSE_SHARE} to 1.5; default 0.67. Below ${MIN_RESPONSE_SHARE} the controller hunts on a steady load: a step that closes leaves the board over-corrected by more than the threshold and opens again (common practice, no source)`,
+        `switching threshold as a share of the smallest step (C/k setting), ${MIN_RESPONSE_SHARE} to 1.5; default ${PROFILE_DEFAULTS.responseShare}, the share the correction study sets C/k at. Below ${MIN_RESPONSE_SHARE} the controller hunts on a steady load: a step that closes leaves the board over-corrected by more than the threshold and opens again (common practice, no source)`,
       ),
     delaySeconds: nonNegative.max(3600).optional().describe('time a need must persist before a step switches; default 30 s'),
     reconnectSeconds: nonNegative.max(3600).optional().describe('minimum time a step stays off before reconnecting (discharge); default the discharge time of the board\'s practice: 180 s IEC (50 Hz), 60 s North-American (60 Hz)'),

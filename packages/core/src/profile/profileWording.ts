@@ -8,6 +8,8 @@ import { checkNumberArgument, checkObjectArgument } from '../_internal/argumentC
 import type { SequenceReport } from './checkIntervalSequence.js';
 import type { ProfileSummary } from './summariseFigures.js';
 import type { ProfileBankResult } from './studyProfile.js';
+import type { BelowTarget } from './belowTargetHours.js';
+import type { NeverClosedStep } from './stepsNeverClosed.js';
 import { groupDigits } from '../_internal/groupDigits.js';
 
 /** Cautions printed with every profile result. */
@@ -279,6 +281,75 @@ function openStepsTooLargeWords(b: ProfileBankResult, hours: (h: number) => stri
 }
 
 /**
+ * A step never in service over the data (stepsNeverClosed.ts), in words with its figures: why the controller
+ * left it open while its lines read short of the target, and what that leaves of the bank. `place` is where it
+ * sits in the board's words (stepPlaceWords); `totalKvar` the switched kvar of the whole bank.
+ */
+export function neverClosedWords(n: NeverClosedStep, place: string, settings: { readonly responseShare: number; readonly upperPf: number | null }, totalKvar: number): string {
+  const hours = (x: number) => (x < 10 ? x.toFixed(2) : x.toFixed(1));
+  const kvar = n.kvar.toFixed(1);
+  const head = `step ${n.step} (${kvar} kvar ${place}) never closed over the data`;
+  const unused = `${kvar} of the bank's ${totalKvar.toFixed(1)} kvar unused at these loads`;
+  if (n.shortHours <= 0) return `${head}: its lines never read short of the target with the other steps in — ${unused}`;
+  const upper = settings.upperPf === null || settings.upperPf >= 1 ? 'unity into leading' : `PF ${settings.upperPf.toFixed(Math.round(settings.upperPf * 100) === settings.upperPf * 100 ? 2 : 3)} lagging`;
+  const parts: string[] = [];
+  if (n.pastLimitHours > 0 && n.mostRoomKvar !== null) {
+    const [room, step] = apartKvar(Math.max(0, n.mostRoomKvar), n.kvar);
+    const what = settings.upperPf === null || settings.upperPf >= 1 ? 'lagging' : 'of room before that limit';
+    parts.push(`in ${hours(n.pastLimitHours)} h closing it would have carried them past ${upper} at its rated ${step} kvar (${room.startsWith('just') ? room : `at most ${room}`} kvar ${what} there)`);
+  }
+  if (n.underThresholdHours > 0 && n.mostNeedKvar !== null) {
+    const threshold = settings.responseShare * n.kvar;
+    const [need, limit] = apartKvar(n.mostNeedKvar, threshold, 2);
+    parts.push(`in ${hours(n.underThresholdHours)} h the need there, ${need.startsWith('just') ? need : `at most ${need}`} kvar, stayed under its own threshold (${settings.responseShare.toFixed(2)} × ${kvar} = ${limit} kvar)`);
+  }
+  if (n.waitingHours > 0) parts.push(`in ${hours(n.waitingHours)} h it could have closed but waited (the delay, its discharge, or another step first)`);
+  return `${head}: of the ${hours(n.shortHours)} h its lines read short of the target, ${parts.join('; ')} — ${unused}`;
+}
+
+/**
+ * Two kvar figures printed with enough decimals (`fewest` to 3) that the smaller reads smaller: a step "against at
+ * most" a room must never print as equal to it; closer than that, the smaller reads "just under" the larger.
+ */
+function apartKvar(small: number, large: number, fewest = 1): [string, string] {
+  for (const d of [1, 2, 3].filter((x) => x >= fewest)) if (Number(small.toFixed(d)) < Number(large.toFixed(d))) return [small.toFixed(d), large.toFixed(d)];
+  // Closer than three decimals tell apart: said in words, the larger at the usual decimals.
+  return [`just under ${large.toFixed(fewest)}`, large.toFixed(fewest)];
+}
+
+/**
+ * The hours the steps still open on the lines falling short are fewer kvar than the shortfall (none, where every
+ * step answering to those lines is in): the bank is too small where the load falls short, whatever else is open.
+ */
+function shortOfStepsWords(t: BelowTarget, hours: string): string {
+  const open = t.shortOfStepsOpenKvar ?? 0;
+  return open > 0
+    ? `${hours} h with the steps still open on the lines short of the target (at most ${open.toFixed(1)} kvar) fewer than the shortfall, the others answering to lines at their target (the bank too small where that load falls short)`
+    : `${hours} h with every step that answers to the lines short of the target in, the steps still open answering to lines at their target (the bank too small where that load falls short)`;
+}
+
+/**
+ * The hours every step still open on a channel short of the target would carry that channel past the band's
+ * upper limit (unity: leading): each such channel's smallest open step against the most room it had there, so
+ * a trim too large for the loads it meets is named with its figures.
+ */
+function stepTooCoarseWords(b: ProfileBankResult, hours: string, upper: string): string {
+  const unity = (b.settings.upperPf ?? 1) >= 1;
+  const past = unity ? 'past unity into leading' : `past PF ${upper} lagging`;
+  const head = `${hours} h with the steps still open on lines short of the target too large for them, at their rated kvar carrying those lines ${past}`;
+  const channels = b.belowTarget.stepTooCoarseChannels;
+  // A result without the channels (written before they were kept): the head alone.
+  if (!channels?.length) return `${head}: steps too coarse for that load`;
+  const figures = channels.map((c) => {
+    const [room, step] = apartKvar(Math.max(0, c.mostRoomKvar), c.smallestOpenKvar);
+    const lines = c.channel === 'ABC' ? 'on the board' : 'on its lines';
+    return `${step} kvar ${b.placeWords[c.channel] ?? c.channel} against ${room.startsWith('just') ? room : `at most ${room}`} kvar ${unity ? 'lagging' : `of room before PF ${upper}`} ${lines}`;
+  });
+  const listed = figures.length > 1 ? `${figures.slice(0, -1).join(', ')} and ${figures[figures.length - 1]}` : figures[0]!;
+  return `${head} (${listed}): steps too coarse for that load`;
+}
+
+/**
  * The hours with the shortfall under the switching threshold, quoting each channel's own: the controller
  * judges a channel (the board for three-phase steps, a phase or a line pair for the others) against
  * responseShare × that channel's smallest step, so one channel's threshold never explains another's hours.
@@ -315,12 +386,11 @@ export function belowTargetWords(b: ProfileBankResult): string | null {
   const hours = (h: number) => (h < 10 ? h.toFixed(2) : h.toFixed(1));
   // Three decimals where a band edge needs them (0.995 must not read as 0.99).
   const pf = (x: number) => x.toFixed(Math.round(x * 100) === x * 100 ? 2 : 3);
-  // With single-phase or line-pair steps each channel answers to its own reading, and is judged on it.
-  const ownReadings = b.steps.some((s) => s.channel !== 'ABC');
   const why = [
-    ...(t.allStepsInHours > 0 ? [`${hours(t.allStepsInHours)} h with every step in${ownReadings ? ' where it falls short' : ''} (the bank too small for that load)`] : []),
+    ...(t.allStepsInHours > 0 ? [`${hours(t.allStepsInHours)} h with every step in (the bank too small for that load)`] : []),
+    ...((t.shortOfStepsHours ?? 0) > 0 ? [shortOfStepsWords(t, hours(t.shortOfStepsHours!))] : []),
     ...(t.underResponseHours > 0 ? [underResponseWords(b, hours(t.underResponseHours))] : []),
-    ...(t.stepTooCoarseHours > 0 ? [`${hours(t.stepTooCoarseHours)} h with no step small enough to stay under ${pf(set.upperPf!)} (steps coarse for this band at that load)`] : []),
+    ...(t.stepTooCoarseHours > 0 ? [stepTooCoarseWords(b, hours(t.stepTooCoarseHours), pf(set.upperPf!))] : []),
     ...(t.openStepsTooLargeHours > 0 ? [openStepsTooLargeWords(b, hours, t.openStepsTooLargeHours)] : []),
     ...(t.onTheWayHours > 0 ? [`${hours(t.onTheWayHours)} h with the controller on its way (switching delay, a step waiting out its discharge)`] : []),
   ];

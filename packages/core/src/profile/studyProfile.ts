@@ -16,6 +16,7 @@ import type { ProfileSpec } from './profileSpec.js';
 import { simulateBank } from './simulateBank.js';
 import type { BelowTarget } from './belowTargetHours.js';
 import type { SettledShortTrial } from './settledShortTrial.js';
+import type { NeverClosedStep } from './stepsNeverClosed.js';
 import { clearRoundOff, conductorFloorA } from './intervalRoundOff.js';
 import { bankOverProfile } from './bankOverProfile.js';
 import { allocateFigures, solveBatch, type BatchSolveOptions, type IntervalFigures } from './solveBatch.js';
@@ -135,9 +136,10 @@ export interface ProfileBankResult {
   readonly measuredAt: string | null;
   /**
    * Board-total PF below the target while importing (where the controller measures), hours, and why, each
-   * interval by the simulated controller's state in it (belowTargetHours.ts): every step in; the shortfall under
-   * the response threshold; with an upper limit, steps too coarse for the band; settled with the open steps each
-   * too large for what is left; the controller on its way. All 0 where the PF is at or above the target in
+   * interval by the simulated controller's state in it (belowTargetHours.ts): every step in; steps open on the
+   * short lines fewer kvar than the shortfall (too small where the load falls short); with an upper limit, the
+   * open steps too coarse for the band; settled with the open steps each too large for what is left; the
+   * shortfall under the response threshold; the controller on its way. All 0 where the PF is at or above the target in
    * every importing interval.
    */
   readonly belowTarget: BelowTarget;
@@ -147,6 +149,12 @@ export interface ProfileBankResult {
    * target (settledShortTrial.ts); null where there are no such hours.
    */
   readonly settledShortTrial: SettledShortTrial | null;
+  /**
+   * The switched steps never in service over the data, each with the hours its lines read short of the target
+   * split by why the controller left it open, and in words (stepsNeverClosed.ts); empty where every step was in
+   * at some time. Absent from results written before it was kept.
+   */
+  readonly neverClosed?: readonly (NeverClosedStep & { readonly words: string })[];
   /**
    * Where the sizing found no step size whose steps the controller closes up to the target at the sized need
    * (the last step's need under the response threshold): the channel, the need, kvar; otherwise null.

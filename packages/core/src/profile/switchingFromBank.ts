@@ -38,6 +38,11 @@ export interface BankDesign {
   readonly arrangement: string;
   readonly words: string;
   readonly recommended: boolean;
+  /**
+   * Where the file has no correction section: the correction study's defaults the bank was designed with, in
+   * words (as `trivar correct` takes them on such a file), so the reader knows no file setting stood behind it.
+   */
+  readonly defaultsWords?: string;
 }
 
 /** A one-branch step's channel: its line (to the neutral) or its pair of lines; undefined for anything else. */

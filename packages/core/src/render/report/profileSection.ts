@@ -126,6 +126,7 @@ function bankBlock(b: ProfileBankResult, where = ''): ReportBlock {
       ['Reconnection after a step goes off', `${b.settings.reconnectSeconds} s (discharge time ${b.settings.dischargeSeconds} s, ${b.settings.dischargeRule})`],
       ['Switching within an interval', b.withinInterval.words],
       ...(belowTargetWords(b) ? ([['Hours below the target with the bank', belowTargetWords(b)!]] as [string, string][]) : []),
+      ...(b.neverClosed ?? []).map((n): [string, string] => ['Step never closed', n.words]),
       ...(b.targetOutOfReach ? ([['Target out of reach of the sized steps', b.targetOutOfReach.words]] as [string, string][]) : []),
     ],
   };
