@@ -24,7 +24,7 @@ import { verifyCorrection, type VerifyCorrectionOptions } from './verifyCorrecti
 import { scaleBoardLoads } from './scaleBoardLoads.js';
 import type { BankSelection, BankSizing, BuildVerdict, CompensatorSizing, CorrectionReport, CorrectionStatus, CorrectionVerification, CorrectionWarning, FewerBranchesBuild, LineComparison, RoundingBesideReactors, SizedEquipment } from './correctionResult.js';
 import { withCtReading, type CtReading } from './controllerSettings.js';
-import { arrangementNames, correctionCautions, exemptLeadingLines, exemptLeadingWords, infeasibleReason, lostNeutralCaution, lostNeutralUnequal, MODEL_CAUTION, meteringWarning, reportSummary, warningText } from './correctionWording.js';
+import { arrangementNames, correctionCautions, ctRatingWords, exemptLeadingLines, exemptLeadingWords, infeasibleReason, lostNeutralCaution, lostNeutralUnequal, MODEL_CAUTION, meteringWarning, reportSummary, warningText } from './correctionWording.js';
 import { definedOnly } from './_internal/optionSchemas.js';
 import { assertViableBoard } from '../analysis/viableOperatingPoint.js';
 import { CORRECTION_DEFAULTS, toleranceFractions } from './correctionDefaults.js';
@@ -184,6 +184,15 @@ function reactorWords(equipment: readonly EquipmentGroup[], label: PhaseLabeller
  * report.verification.board // the corrected board, for another simulator
  */
 export function correctBoard(board: Board, spec: unknown): CorrectionReport {
+  return correctBoardBuilt(board, spec, { detunedSteps: false });
+}
+
+/**
+ * `correctBoard` with how the bank is built (not exported from the package): `detunedSteps` where the
+ * catalogue holds the fundamental equivalents of capacitors behind detuning reactors (correctWithHarmonics.ts),
+ * so each switched step has its own reactor and the stricter least step applies (leastSwitchedStep.ts).
+ */
+export function correctBoardBuilt(board: Board, spec: unknown, construction: { readonly detunedSteps: boolean }): CorrectionReport {
   assertBoardModel(board);
   const checked = parseCorrectionSpec(spec, board);
   if (checked.arrangement === undefined)
@@ -217,6 +226,7 @@ export function correctBoard(board: Board, spec: unknown): CorrectionReport {
         practice: parsed.practice ?? defaultPractice(board.frequencyHz),
         catalogue: parsed.catalogue,
         minStepKvar: parsed.bank?.minStepKvar,
+        detunedSteps: construction.detunedSteps,
         trimSteps: parsed.bank?.trimSteps,
         maxUnitsPerBranch: parsed.bank?.maxUnitsPerBranch,
         controller: parsed.controller,
@@ -385,6 +395,8 @@ export function correctBoard(board: Board, spec: unknown): CorrectionReport {
   } else if (chosen.verdict === 'misses') {
     status = 'misses-target-with-available-units';
     reasons.push(infeasibleReason.unitsMissTarget([...verification.check.shortfalls, ...(balance?.shortfalls ?? [])]));
+    // A build with a step below the least would have fitted: said beside the shortfall, with its figures.
+    if (built?.leastStep.heldBack) reasons.push(heldBackWords(built.leastStep));
     const pinned = widthlessTargetPf(target);
     if (pinned !== null) reasons.push(infeasibleReason.widthlessTarget(pinned, target.leading === 'allowed'));
     // Rounded down beside the reactors (kept at their continuous values the capacitors may not pass their
@@ -433,6 +445,8 @@ export function correctBoard(board: Board, spec: unknown): CorrectionReport {
     ...(sizing.arrangement === 'balancing-compensator' ? sizing.warnings : []),
     ...(built?.warnings ?? []).filter((w) => !settledByVerdict.has(w.code)),
     ...(chosen.passedOver ? [chosen.passedOver] : []),
+    // Met at nominal capacitance only where a smaller step would have fitted the ranges: said beside it (a miss says it in the reasons).
+    ...(status === 'meets-target-at-nominal-capacitance' && built?.leastStep.heldBack ? [heldBackWarning(built.leastStep)] : []),
     ...(resizing?.used ? [{ code: 'reactors-resized', message: warningText.reactorsResized(resizedWords(resizing.reactors)), path: null, value: null, threshold: null }] : []),
     ...verification.warnings,
     ...(verification.metering && built?.controller
@@ -472,6 +486,15 @@ export function correctBoard(board: Board, spec: unknown): CorrectionReport {
         ? [MODEL_CAUTION]
         : [...(lostNeutral.caution ? [lostNeutral.caution] : []), ...correctionCautions(regionWords(conventionsOf(board).region, board.system).groundWord)],
   };
+}
+
+/** A step below the least that would have fitted the capacitance ranges, in words with its figures. */
+function heldBackWords(least: BankSelection['leastStep']): string {
+  return infeasibleReason.stepHeldBack(least.heldBack!, { responseThresholdA: least.responseThresholdA, ct: ctRatingWords(least.ctPrimaryA, least.ctSecondaryA), detuned: least.detuned });
+}
+
+function heldBackWarning(least: BankSelection['leastStep']): CorrectionWarning {
+  return { code: 'step-held-back', message: heldBackWords(least), path: null, value: least.heldBack!.responseThresholdA, threshold: least.responseThresholdA };
 }
 
 /** The largest line current before and after, A. */
