@@ -32,6 +32,11 @@ export function kvarAtResponse(responseA: number, kind: StepThresholdKind, volta
   return va / 1000;
 }
 
+/** The least output of a switched step of this kind at nominal voltage, kvar: the least C/k's, and for a detuned step at least `leastDetunedStepKvar`. */
+export function leastStepKvar(responseA: number, kind: StepThresholdKind, voltageV: number, ctRatio: number, detuned: boolean): number {
+  return Math.max(kvarAtResponse(responseA, kind, voltageV, ctRatio), detuned ? CORRECTION_DEFAULTS.leastDetunedStepKvar : 0);
+}
+
 /** The least step on one CT, for the kinds of step a bank may have (kind and the voltage its C/k is read at). */
 export function leastSwitchedStep(input: {
   readonly ct: { readonly primaryA: number; readonly secondaryA: number };
@@ -43,7 +48,7 @@ export function leastSwitchedStep(input: {
   const { responseThresholdA: responseA, shareOfSecondary } = leastStepResponse(ct.secondaryA, detuned);
   const detunedKvar = detuned ? CORRECTION_DEFAULTS.leastDetunedStepKvar : null;
   const ratio = ct.primaryA / ct.secondaryA;
-  const floors: StepFloor[] = input.kinds.map(({ kind, voltageV }) => ({ kind, voltageV, kvarAtNominalV: Math.max(kvarAtResponse(responseA, kind, voltageV, ratio), detunedKvar ?? 0) }));
+  const floors: StepFloor[] = input.kinds.map(({ kind, voltageV }) => ({ kind, voltageV, kvarAtNominalV: leastStepKvar(responseA, kind, voltageV, ratio, detuned) }));
   const least = { detuned, responseThresholdA: responseA, shareOfSecondary, ctPrimaryA: ct.primaryA, ctSecondaryA: ct.secondaryA, floors, nameplateKvar: input.minStepKvar, detunedKvar, widestRatio: CORRECTION_DEFAULTS.widestStepRatio };
   return { ...least, words: leastStepWords(least) };
 }

@@ -37,7 +37,7 @@ import { labellerOf, PHASE_NAMINGS, type PhaseNaming } from '../board/convention
 import { REGIONS, type Region } from '../board/conventions/region.js';
 import { starWordOf } from '../board/conventions/regionWords.js';
 import { cheapestStepUnits, firstFit, leastCostOverWindows, searchSet, shortOfTarget, switchedStepsOf, type Need, type SetBuild, type SetRules, type UnitChoice } from './_internal/bankSearch.js';
-import { leastSwitchedStep, stepSeriesSpan, stepSeriesWarning } from './leastSwitchedStep.js';
+import { leastStepKvar, leastStepResponse, leastSwitchedStep, stepSeriesSpan, stepSeriesWarning } from './leastSwitchedStep.js';
 import { defaultPractice } from './capacitorDischarge.js';
 import { controllerSettings, controllerWarnings, ctBasisOf, resolveCurrentTransformer, responseThresholdA } from './controllerSettings.js';
 import { checkObjectArgument } from '../_internal/argumentChecks.js';
@@ -190,7 +190,7 @@ export function selectBankUnitsPreferring(sized: SizedEquipment, options: Select
   const detuned = opts.detunedSteps ?? false;
   // The least step on this CT; each set's floors in capacitance come from it (stepRules below).
   const leastOnCt = (kinds: readonly Pick<StepFloor, 'kind' | 'voltageV'>[]) => leastSwitchedStep({ ct, detuned, minStepKvar, kinds });
-  const leastResponseA = leastOnCt([]).responseThresholdA;
+  const leastResponseA = leastStepResponse(ct.secondaryA, detuned).responseThresholdA;
   // Units are rated for the system's voltage: 277 V on a 480Y/277 board, though its model holds 277.1 V.
   const ratedAt = (slot: { vNominal: number; ratedV?: number }) => slot.ratedV ?? slot.vNominal;
   // Beside reactors kept at their continuous value a capacitor may not grow past its requirement (the
@@ -263,7 +263,7 @@ export function selectBankUnitsPreferring(sized: SizedEquipment, options: Select
     return { basis, voltageV, kvarPerF, ckPerF: responseThresholdA(kvarPerF, basis, voltageV, ct.primaryA / ct.secondaryA) };
   };
   /** The least switched step's capacitance per branch for a step read as `reading`, F (the larger of C/k and, detuned, the least kvar). */
-  const leastStepFOf = (reading: ReturnType<typeof stepReading>) => leastOnCt([{ kind: reading.basis, voltageV: reading.voltageV }]).floors[0]!.kvarAtNominalV / reading.kvarPerF;
+  const leastStepFOf = (reading: ReturnType<typeof stepReading>) => leastStepKvar(leastResponseA, reading.basis, reading.voltageV, ct.primaryA / ct.secondaryA, detuned) / reading.kvarPerF;
   /** Kinds of step the bank may have, for the least step's words (each once). */
   const stepKinds: Pick<StepFloor, 'kind' | 'voltageV'>[] = [];
   const addKind = (r: ReturnType<typeof stepReading>) => {
@@ -349,7 +349,10 @@ export function selectBankUnitsPreferring(sized: SizedEquipment, options: Select
     const build = searchWith(rules);
     // Where the build kept to the least step fits a range worse than one with a smaller step would, that
     // step is named (not built): the study says so where the re-solved board misses the target.
-    if (heldBack === null && Math.max(...build.tiers) > 0) {
+    // The floor can change the fit only where some unit is smaller than it (any count of larger ones passes).
+    const floorBinds =
+      balancedChoices.some((c) => c.elementF < rules.leastStepF.balanced * (1 - 1e-9)) || trimChoices.some((choices, k) => choices.some((c) => c.elementF < rules.leastStepF.trims[k]! * (1 - 1e-9)));
+    if (heldBack === null && floorBinds && Math.max(...build.tiers) > 0) {
       const free = searchWith({ ...rules, leastStepF: { balanced: 0, trims: rules.leastStepF.trims.map(() => 0) } });
       if (Math.max(...free.tiers) < Math.max(...build.tiers)) {
         const below = switchedStepsOf(free, rules).filter((st) => st.responseA < leastResponseA * (1 - 1e-9) || st.capacitanceF < (st.branches.length === 1 ? rules.leastStepF.trims[st.branches[0]!]! : rules.leastStepF.balanced) * (1 - 1e-9));
