@@ -219,6 +219,10 @@ export function correctBoardBuilt(board: Board, spec: unknown, construction: { r
     if (!light) lightSizings.set(key, (light = buildable(sizeArrangement(scaled, parsed, { limitsOnly: true, ...(heldBranches ? { heldBranches } : {}) }))));
     return light;
   };
+  // Measured away from the board, the controller's CT reads there: the selection chooses it, and the least
+  // step on it, on the largest line current there before correction (set again on the verified build).
+  const meterForCt = meteringPlace(board, target.measuredAt);
+  const meterCurrentA = meterForCt ? Math.max(0, ...solveMeter(board, meterForCt).phases.map((p) => p.current.magnitude)) : undefined;
   const selectUnits = (sized: SizedEquipment, how: { heldBranches?: readonly string[]; besideReactors?: 'up' } = {}, preference: BuildPreference = 'least-cost'): BankSelection =>
     selectBankUnitsPreferring(
       sized,
@@ -226,6 +230,7 @@ export function correctBoardBuilt(board: Board, spec: unknown, construction: { r
         practice: parsed.practice ?? defaultPractice(board.frequencyHz),
         catalogue: parsed.catalogue,
         minStepKvar: parsed.bank?.minStepKvar,
+        lineCurrentA: meterCurrentA,
         detunedSteps: construction.detunedSteps,
         trimSteps: parsed.bank?.trimSteps,
         maxUnitsPerBranch: parsed.bank?.maxUnitsPerBranch,
@@ -360,7 +365,7 @@ export function correctBoardBuilt(board: Board, spec: unknown, construction: { r
   // The controller's CT goes where it reads (where the target is measured, else the equipment's board) and
   // carries the largest current there: before, with every step in, or in the worst state of the switched
   // steps (a fixed reactor with the capacitors out, trim steps apart): chosen and checked on the build as verified.
-  const meter = meteringPlace(board, target.measuredAt);
+  const meter = meterForCt;
   const worst =
     asBuilt && asBuilt.controller
       ? worstStepState({
