@@ -401,7 +401,7 @@ export function correctBoardBuilt(board: Board, spec: unknown, construction: { r
     status = 'misses-target-with-available-units';
     reasons.push(infeasibleReason.unitsMissTarget([...verification.check.shortfalls, ...(balance?.shortfalls ?? [])]));
     // A build with a step below the least would have fitted: said beside the shortfall, with its figures.
-    if (built?.leastStep.heldBack) reasons.push(heldBackWords(built.leastStep));
+    if (built?.leastStep.heldBack) reasons.push(heldBackWords(built.leastStep, label));
     const pinned = widthlessTargetPf(target);
     if (pinned !== null) reasons.push(infeasibleReason.widthlessTarget(pinned, target.leading === 'allowed'));
     // Rounded down beside the reactors (kept at their continuous values the capacitors may not pass their
@@ -451,7 +451,7 @@ export function correctBoardBuilt(board: Board, spec: unknown, construction: { r
     ...(built?.warnings ?? []).filter((w) => !settledByVerdict.has(w.code)),
     ...(chosen.passedOver ? [chosen.passedOver] : []),
     // Met at nominal capacitance only where a smaller step would have fitted the ranges: said beside it (a miss says it in the reasons).
-    ...(status === 'meets-target-at-nominal-capacitance' && built?.leastStep.heldBack ? [heldBackWarning(built.leastStep)] : []),
+    ...(status === 'meets-target-at-nominal-capacitance' && built?.leastStep.heldBack ? [heldBackWarning(built.leastStep, label)] : []),
     ...(resizing?.used ? [{ code: 'reactors-resized', message: warningText.reactorsResized(resizedWords(resizing.reactors)), path: null, value: null, threshold: null }] : []),
     ...verification.warnings,
     ...(verification.metering && built?.controller
@@ -494,12 +494,13 @@ export function correctBoardBuilt(board: Board, spec: unknown, construction: { r
 }
 
 /** A step below the least that would have fitted the capacitance ranges, in words with its figures. */
-function heldBackWords(least: BankSelection['leastStep']): string {
-  return infeasibleReason.stepHeldBack(least.heldBack!, { responseThresholdA: least.responseThresholdA, ct: ctRatingWords(least.ctPrimaryA, least.ctSecondaryA), detuned: least.detuned });
+function heldBackWords(least: BankSelection['leastStep'], label: PhaseLabeller): string {
+  const held = least.heldBack!;
+  return infeasibleReason.stepHeldBack({ ...held, branches: held.branches.map(label) }, { responseThresholdA: least.responseThresholdA, ct: ctRatingWords(least.ctPrimaryA, least.ctSecondaryA), detuned: least.detuned });
 }
 
-function heldBackWarning(least: BankSelection['leastStep']): CorrectionWarning {
-  return { code: 'step-held-back', message: heldBackWords(least), path: null, value: least.heldBack!.responseThresholdA, threshold: least.responseThresholdA };
+function heldBackWarning(least: BankSelection['leastStep'], label: PhaseLabeller): CorrectionWarning {
+  return { code: 'step-held-back', message: heldBackWords(least, label), path: null, value: least.heldBack!.responseThresholdA, threshold: least.responseThresholdA };
 }
 
 /** The largest line current before and after, A. */

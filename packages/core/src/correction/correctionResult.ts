@@ -396,7 +396,7 @@ export interface LeastSwitchedStep {
   readonly ratio: number | null;
   /**
    * Where no build kept to the least step fits a branch's capacitance range and one with a smaller
-   * step would: that step (not built). Null otherwise.
+   * step would: that step (not built), its branches as data keys (A-B). Null otherwise.
    */
   readonly heldBack: { readonly branches: readonly string[]; readonly kvarAtNominalV: number; readonly responseThresholdA: number } | null;
   /** The least step in words, for the report. */

@@ -188,7 +188,7 @@ export function selectBankUnitsPreferring(sized: SizedEquipment, options: Select
   const ctBasis = ctBasisOf(opts.lineCurrentA !== undefined ? { givenA: opts.lineCurrentA } : { place: 'board', point: null, lines: sizedLines(sized), afterFrom: 'as-sized' });
   const ct = resolveCurrentTransformer(controllerSpec, ctBasis.currentA);
   const detuned = opts.detunedSteps ?? false;
-  // The least step on this CT; each set's floors in capacitance come from it (stepRules below).
+  // The least step on this CT; each set's floors in capacitance come from it (`leastStepFOf`).
   const leastOnCt = (kinds: readonly Pick<StepFloor, 'kind' | 'voltageV'>[]) => leastSwitchedStep({ ct, detuned, minStepKvar, kinds });
   const leastResponseA = leastStepResponse(ct.secondaryA, detuned).responseThresholdA;
   // Units are rated for the system's voltage: 277 V on a 480Y/277 board, though its model holds 277.1 V.
@@ -359,7 +359,7 @@ export function selectBankUnitsPreferring(sized: SizedEquipment, options: Select
         const smallest = below.reduce<(typeof below)[number] | null>((a, b) => (a === null || b.responseA < a.responseA ? b : a), null);
         if (smallest) {
           const kvarPerF = smallest.branches.length === 1 ? trimReadings[smallest.branches[0]!]!.kvarPerF : balancedReading.kvarPerF;
-          heldBack = { branches: smallest.branches.map((b) => label(branchInfo[set.indices[b]!]!.b.branch)), kvarAtNominalV: smallest.capacitanceF * kvarPerF, responseThresholdA: smallest.responseA };
+          heldBack = { branches: smallest.branches.map((b) => branchInfo[set.indices[b]!]!.b.branch), kvarAtNominalV: smallest.capacitanceF * kvarPerF, responseThresholdA: smallest.responseA };
         }
       }
     }
