@@ -223,7 +223,8 @@ export function correctBoardBuilt(board: Board, spec: unknown, construction: { r
   // step on it, on the largest line current there before correction (set again on the verified build).
   const meterForCt = meteringPlace(board, target.measuredAt);
   const meterCurrentA = meterForCt ? Math.max(0, ...solveMeter(board, meterForCt).phases.map((p) => p.current.magnitude)) : undefined;
-  const selectUnits = (sized: SizedEquipment, how: { heldBranches?: readonly string[]; besideReactors?: 'up' } = {}, preference: BuildPreference = 'least-cost'): BankSelection =>
+  /** `nameHeldBack`: search again without the least step where the build fits worse, to name the step held back (only where the verdict needs it). */
+  const selectUnits = (sized: SizedEquipment, how: { heldBranches?: readonly string[]; besideReactors?: 'up' } = {}, preference: BuildPreference = 'least-cost', nameHeldBack = false): BankSelection =>
     selectBankUnitsPreferring(
       sized,
       definedOnly({
@@ -245,6 +246,7 @@ export function correctBoardBuilt(board: Board, spec: unknown, construction: { r
         besideReactors: how.besideReactors,
       }),
       preference,
+      nameHeldBack,
     );
   const verifyOptions = (equipment: VerifyCorrectionOptions['equipment']): VerifyCorrectionOptions =>
     definedOnly({
@@ -267,6 +269,8 @@ export function correctBoardBuilt(board: Board, spec: unknown, construction: { r
     readonly cost: number | null;
     /** A cheaper build the re-solve proved worse and this one replaced, said in the warnings. */
     readonly passedOver?: CorrectionWarning;
+    /** The same selection made again naming the step the least step held back (LeastSwitchedStep.heldBack). */
+    readonly heldBackOf?: () => BankSelection['leastStep']['heldBack'];
   }
   const buildOf = (sized: SizedEquipment, selection: BankSelection | null): Build => {
     // Built with reactors, a compensator gets its reactors sized again beside the capacitors as built
@@ -301,13 +305,13 @@ export function correctBoardBuilt(board: Board, spec: unknown, construction: { r
    * to the least-cost build). The second is chosen and re-solved only where the first falls short.
    */
   const provenBuildOf = (sized: SizedEquipment, how: { heldBranches?: readonly string[]; besideReactors?: 'up' } = {}): Build => {
-    const cheapest = buildOf(sized, selectUnits(sized, how));
+    const cheapest = { ...buildOf(sized, selectUnits(sized, how)), heldBackOf: () => selectUnits(sized, how, 'least-cost', true).leastStep.heldBack };
     // Proved: it meets the target across the tolerance and passes no limit; the second is for a build that does not.
     if (cheapest.verdict === 'meets' && limitsBroken(cheapest) === 0) return cheapest;
     const alternative = selectUnits(sized, how, 'equal-steps');
     const cheapestSelection = cheapest.selection!;
     if (stepsBought(alternative) === stepsBought(cheapestSelection)) return cheapest;
-    const equalSteps = buildOf(sized, alternative);
+    const equalSteps = { ...buildOf(sized, alternative), heldBackOf: () => selectUnits(sized, how, 'equal-steps', true).leastStep.heldBack };
     const rank = (b: Build) => [BUILD_VERDICT_RANK[b.verdict], limitsBroken(b), b.cost ?? Infinity];
     const [a, c] = [rank(equalSteps), rank(cheapest)];
     const wins = a[0]! !== c[0]! ? a[0]! < c[0]! : a[1]! !== c[1]! ? a[1]! < c[1]! : a[2]! < c[2]!;
@@ -384,7 +388,10 @@ export function correctBoardBuilt(board: Board, spec: unknown, construction: { r
   const ctReading: CtReading = verification.metering
     ? { place: 'metering-point', point: verification.metering.point, lines: verification.metering.lines, afterFrom: 'as-built', stepState }
     : { place: 'board', point: board.name, lines: verification.lines, afterFrom: 'as-built', stepState };
-  const built = asBuilt && withCtReading(asBuilt, ctReading, parsed.controller ?? {});
+  const withCt = asBuilt && withCtReading(asBuilt, ctReading, parsed.controller ?? {});
+  // Short of the target across the tolerance: the step the least step held back, where one would have fitted, is named.
+  const heldBack = withCt && chosen.verdict !== 'meets' && chosen.heldBackOf ? chosen.heldBackOf() : null;
+  const built = withCt && heldBack ? { ...withCt, leastStep: { ...withCt.leastStep, heldBack } } : withCt;
   const resizedWords = (r: NonNullable<typeof refit>['reactors']) => r.map((x) => ({ ...x, branch: label(x.branch) }));
   const resizing = refit ? { reactors: refit.reactors, objectiveSized: refit.objectiveSized, objectiveResized: refit.objectiveResized, converged: refit.converged, used: useRefit, solves: refit.solves } : null;
   const idealVerification = sizing.arrangement === 'balancing-compensator' ? verifyCorrection(board, verifyOptions(sizing.ideal.equipment)) : null;

@@ -143,7 +143,7 @@ const elementF = (u: CatalogueUnit) => ((u.kind === 'three-phase' ? u.ratedKvar 
  * selection.controller?.responseThresholdA    //=> C/k of the smallest step, A
  */
 export function selectBankUnits(sized: SizedEquipment, options?: SelectBankUnitsOptions): BankSelection {
-  return selectBankUnitsPreferring(sized, options, 'least-cost');
+  return selectBankUnitsPreferring(sized, options, 'least-cost', true);
 }
 
 /**
@@ -154,8 +154,13 @@ export function selectBankUnits(sized: SizedEquipment, options?: SelectBankUnits
  */
 export type BuildPreference = 'least-cost' | 'equal-steps';
 
-/** `selectBankUnits` with the preference given (the study's candidates; not exported from the package). */
-export function selectBankUnitsPreferring(sized: SizedEquipment, options: SelectBankUnitsOptions | undefined, preference: BuildPreference): BankSelection {
+/**
+ * `selectBankUnits` with the preference given (the study's candidates; not exported from the package).
+ * `nameHeldBack`: where a set's build fits worse than one with a step below the least would, search
+ * again without the least step to name that step (`leastStep.heldBack`); the study asks only where its
+ * verdict falls short, as the second search costs as much as the first.
+ */
+export function selectBankUnitsPreferring(sized: SizedEquipment, options: SelectBankUnitsOptions | undefined, preference: BuildPreference, nameHeldBack = false): BankSelection {
   checkObjectArgument(sized, 'sized', 'a sizing from sizeStarBank, sizeDeltaBank or sizeBalancingCompensator', ['frequencyHz', 'branches', 'equipment']);
   const opts = parseOptions(selectOptionsSchema, options, 'selectBankUnits options');
   const practice = opts.practice ?? defaultPractice(sized.frequencyHz);
@@ -352,7 +357,7 @@ export function selectBankUnitsPreferring(sized: SizedEquipment, options: Select
     // The floor can change the fit only where some unit is smaller than it (any count of larger ones passes).
     const floorBinds =
       balancedChoices.some((c) => c.elementF < rules.leastStepF.balanced * (1 - 1e-9)) || trimChoices.some((choices, k) => choices.some((c) => c.elementF < rules.leastStepF.trims[k]! * (1 - 1e-9)));
-    if (heldBack === null && floorBinds && Math.max(...build.tiers) > 0) {
+    if (nameHeldBack && heldBack === null && floorBinds && Math.max(...build.tiers) > 0) {
       const free = searchWith({ ...rules, leastStepF: { balanced: 0, trims: rules.leastStepF.trims.map(() => 0) } });
       if (Math.max(...free.tiers) < Math.max(...build.tiers)) {
         const below = switchedStepsOf(free, rules).filter((st) => st.responseA < leastResponseA * (1 - 1e-9) || st.capacitanceF < (st.branches.length === 1 ? rules.leastStepF.trims[st.branches[0]!]! : rules.leastStepF.balanced) * (1 - 1e-9));
