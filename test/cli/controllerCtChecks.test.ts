@@ -1,7 +1,7 @@
 /**
  * A current transformer given for the correction's controller is checked against what it must read:
- * a primary below the line current saturates it, and one so large that the C/k setting falls below
- * what controllers resolve leaves the smallest step unswitchable.
+ * a primary below the line current saturates it, and one so large that the usual steps fall below the
+ * least C/k gets a bank of fewer, larger steps rather than one whose smallest step is unswitchable.
  */
 import { describe, expect, it } from 'vitest';
 import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
@@ -19,10 +19,18 @@ describe('a current transformer given for the controller', () => {
     expect(w.threshold).toBeGreaterThan(150);
     expect(w.message).toMatch(/^the CT primary \(10 A\) is below the largest line current \(\d+\.\d A\)/);
   }, 60_000);
-  it('so large that the C/k setting is finer than controllers resolve: warned', () => {
+  it('so large that the usual steps fall below the least C/k: the bank is built of steps the controller tells apart, its setting never finer than controllers resolve', () => {
     const r = runTrivar(['correct', riverside, '--arrangement', 'delta-bank', '--ct', '5000', '--json']);
-    const codes = (JSON.parse(r.stdout) as { warnings: { code: string }[] }).warnings.map((x) => x.code);
-    expect(codes).toContain('ck-below-resolution');
+    const out = JSON.parse(r.stdout) as {
+      warnings: { code: string }[];
+      selection: { steps: { output: number | null; responseThresholdA: number }[]; leastStep: { responseThresholdA: number }; controller: { responseSettingA: number } };
+    };
+    const codes = out.warnings.map((x) => x.code);
+    // On 5000/5 A the 20.66 kvar steps of the chosen CT's build read 0.030 A: below 1 % of the secondary, not built.
+    expect(out.selection.leastStep.responseThresholdA).toBeCloseTo(0.05, 12);
+    for (const s of out.selection.steps.filter((x) => x.output !== null)) expect(s.responseThresholdA).toBeGreaterThanOrEqual(0.05);
+    expect(out.selection.controller.responseSettingA).toBeGreaterThanOrEqual(0.02);
+    expect(codes).not.toContain('ck-below-resolution');
     const plain = JSON.parse(runTrivar(['correct', riverside, '--arrangement', 'delta-bank', '--json']).stdout) as { warnings: { code: string }[] };
     expect(plain.warnings.map((x) => x.code)).not.toContain('ck-below-resolution');
     expect(plain.warnings.map((x) => x.code)).not.toContain('ct-below-line-current');

@@ -62,13 +62,14 @@ describe('trivar correct: one target, one story', () => {
     expect(studied.map((o) => o.report!.target.definition)).toEqual(['per-line', 'per-line', 'per-line']);
     const delta = c.outcomes.find((o) => o.arrangement === 'delta-bank')!;
     const compensator = c.outcomes.find((o) => o.arrangement === 'balancing-compensator')!;
-    // On a 3-wire board the compensator's branches are the delta bank's: the same units, the same build.
-    expect(compensator.figures!.nameplateKvar).toBe(delta.figures!.nameplateKvar);
-    expect(compensator.figures!.units).toBe(delta.figures!.units);
+    // On a 3-wire board the compensator's branches are the delta bank's, in narrower ranges (its balance
+    // target): each is built within its own ranges and steps, so the builds may differ.
     // PF after is the lowest line's, as the legend says, for both (it was PF1+ for the compensator).
     expect(compensator.figures!.targetPfAfter).toBe(compensator.figures!.lowestLinePf);
-    expect(compensator.figures!.targetPfAfter!).toBeCloseTo(delta.figures!.targetPfAfter!, 9);
+    expect(delta.figures!.targetPfAfter).toBe(delta.figures!.lowestLinePf);
+    expect(compensator.figures!.targetPfAfter!).toBeGreaterThanOrEqual(0.95);
     expect(delta.figures!.targetPfAfter!).toBeGreaterThanOrEqual(0.95);
+
     // A definition given is every arrangement's.
     const vector = compareCorrections(boardOf(CANNERY), { target: { definition: 'vector' } });
     expect(vector.outcomes.filter((o) => o.report).map((o) => o.report!.target.definition)).toEqual(['vector', 'vector', 'vector']);
@@ -86,9 +87,12 @@ describe('trivar correct: one target, one story', () => {
     const out = runTrivar(['correct', '-'], CANNERY).stdout;
     const wye = out.split('\n').find((l) => /^\s+wye bank\s/.test(l))!;
     expect(wye.trim().split(/\s{2,}/)).toEqual(['wye bank', 'no units fit', '-', '-', '-', '-', '-', '-', '-', '-']);
-    // The delta bank and the compensator, identical builds, show the same PF after.
+    // The delta bank and the compensator show the PF after of the target in the header: the lowest line's.
     const pfAfter = (name: string) => out.split('\n').find((l) => new RegExp(`^\\s+${name}\\s`).test(l))!.trim().split(/\s{2,}/)[6];
-    expect(pfAfter('compensator')).toBe(pfAfter('delta bank'));
+    const c = compareCorrections(boardOf(CANNERY), {});
+    const lowest = (a: string) => c.outcomes.find((o) => o.arrangement === a)!.figures!.lowestLinePf!.toFixed(3);
+    expect(pfAfter('compensator')).toBe(lowest('balancing-compensator'));
+    expect(pfAfter('delta bank')).toBe(lowest('delta-bank'));
   });
 
   it('"14 % is tried first" is said only where trivar chose the detuning, not where the file fixes it', () => {

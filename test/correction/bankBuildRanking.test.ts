@@ -101,7 +101,7 @@ describe('of builds equal in cost and units, the one nearer the middle of its wi
     elementF: 5000 / (2 * Math.PI * 50 * ratedV ** 2),
     unitsPerCount: 1,
   });
-  const rules = { unitCostKvar: 2, singleLineStepsKvar: 0, minSwitchedSteps: 1, minStepKvar: 1, outputs: 6, maxUnitsPerBranch: 24 };
+  const rules = { unitCostKvar: 2, singleLineStepsKvar: 0, minSwitchedSteps: 1, minStepKvar: 1, leastStepF: { balanced: 0, trims: [0] }, ckPerF: { balanced: 1000, trims: [1000] }, widestStepRatio: 10, outputs: 6, maxUnitsPerBranch: 24 };
   const window = (minUF: number, maxUF: number): Need => ({ nominalF: minUF * 1e-6, minF: minUF * 1e-6, maxF: maxUF * 1e-6, limitF: maxUF * 1.1e-6, fixedMaxF: 0 });
 
   it('whichever unit is offered first', () => {

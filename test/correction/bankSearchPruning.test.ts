@@ -39,6 +39,11 @@ const rulesArb: fc.Arbitrary<SetRules> = fc.record({
   singleLineStepsKvar: fc.constantFrom(0, 5, 25),
   minSwitchedSteps: fc.integer({ min: 1, max: 4 }),
   minStepKvar: fc.constantFrom(0, 1, 2.5, 5),
+  // The least step in capacitance per branch (0: none), as selectBankUnits derives it from C/k; the
+  // C/k per farad of each kind of step, and the step series kept within (Infinity: none).
+  leastStepF: fc.record({ balanced: fc.constantFrom(0, 2e-5, 1e-4, 4e-4), trims: fc.array(fc.constantFrom(0, 1e-5, 6e-5, 3e-4), { minLength: 3, maxLength: 3 }) }),
+  ckPerF: fc.record({ balanced: fc.double({ min: 100, max: 5000, noNaN: true }), trims: fc.array(fc.double({ min: 100, max: 5000, noNaN: true }), { minLength: 3, maxLength: 3 }) }),
+  widestStepRatio: fc.constantFrom(3, 10, Infinity),
   outputs: fc.integer({ min: 1, max: 12 }),
   maxUnitsPerBranch: fc.integer({ min: 1, max: 30 }),
 });

@@ -218,6 +218,9 @@ function selectionBlock(sel: BankSelection, label: PhaseLabeller, star: StarWord
       `unit rating ≥ nominal voltage + ${fixed(sel.voltageMarginPercent, 0)} % (${sel.practice === 'iec' ? 'IEC' : 'North-American'} practice) and ≥ highest solved voltage / ${fixed(sel.continuousLimitPercent / 100, 2)}; every unit delivers ≥ ${fixed(sel.deliveryFloorPercent, 0)} % of its nameplate at nominal voltage; capacitance tolerance −${sel.capacitanceTolerance.minusPercent} % / +${sel.capacitanceTolerance.plusPercent} %`,
       // Nothing bought: there is no build to call the least cost.
       sel.units > 0 ? `chosen for ${sel.cost.statement} (cost ${fixed(sel.cost.value, 1)})` : 'no unit bought, so no build and no cost to state',
+      // The least step the build kept to, with the step series as built beside it.
+      // The span only where the steps differ (equal steps read 1:1.0, which says nothing).
+      `least switched step: ${sel.leastStep.words}${sel.leastStep.ratio === null || sel.leastStep.ratio < 1.5 ? '' : `; steps as built span 1:${fixed(sel.leastStep.ratio, 1)} in C/k`}`,
     ]),
   );
   out.push(branchTable(sel, label, emptyInSizing, toleranceHeld));

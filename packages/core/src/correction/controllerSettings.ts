@@ -26,7 +26,8 @@ import { CAPACITOR_DISCHARGE } from './capacitorDischarge.js';
 import { CORRECTION_DEFAULTS } from './correctionDefaults.js';
 import type { BankSelection, BankStep, ControllerSettings, CorrectionWarning, CtBasis, LineComparison, StepStateCurrent } from './correctionResult.js';
 import type { ControllerSpec, Practice } from './correctionSpec.js';
-import { ctCurrentWords, ctPlaceWords, warningText } from './correctionWording.js';
+import { ctCurrentWords, ctPlaceWords, ctRatingWords, warningText } from './correctionWording.js';
+import { leastSwitchedStep, stepsBelowLeast } from './leastSwitchedStep.js';
 import { argumentIssueError, checkListArgument, checkNumberArgument, checkObjectArgument } from '../_internal/argumentChecks.js';
 
 /** IEC 61869-2 preferred CT primary ratings: 10, 12.5, 15, 20, 25, 30, 40, 50, 60, 75 A and their decimal multiples (from memory). */
@@ -189,8 +190,8 @@ export function controllerWarnings(controller: ControllerSettings): CorrectionWa
   return out;
 }
 
-/** The warnings `controllerWarnings` gives: a selection's are given again when its CT is. */
-const CT_WARNINGS: ReadonlySet<string> = new Set(['ct-below-line-current', 'ck-below-resolution']);
+/** The warnings `controllerWarnings` gives, and a step below the least on the CT: a selection's are given again when its CT is. */
+const CT_WARNINGS: ReadonlySet<string> = new Set(['ct-below-line-current', 'ck-below-resolution', 'step-below-least']);
 
 /**
  * A selection with its controller's CT chosen (where none was given) and checked where it reads, on the
@@ -206,10 +207,30 @@ export function withCtReading(selection: BankSelection, reading: CtReading, spec
   const scale = was.ctRatio / (ct.primaryA / ct.secondaryA);
   const steps = selection.steps.map((s) => ({ ...s, responseThresholdA: s.responseThresholdA * scale }));
   const controller = controllerSettings({ spec, practice: selection.practice, ct, steps, band: was.targetBand, perLine: was.measurement === 'every-line', ctBasis });
+  // The least step on this CT: the build was chosen on the selection's, so a larger CT may leave a step below it.
+  const kept = selection.leastStep;
+  const least = { ...leastSwitchedStep({ ct, detuned: kept.detuned, minStepKvar: kept.nameplateKvar, kinds: kept.floors }), ratio: kept.ratio, heldBack: kept.heldBack };
+  const below = stepsBelowLeast(steps, least);
+  const belowWarning: CorrectionWarning[] = below.length
+    ? [
+        {
+          code: 'step-below-least',
+          message: warningText.stepsBelowLeastOnCt(
+            below.map((s) => ({ output: s.output!, branches: s.branches.length === 3 ? 'three-phase' : s.branches.join(', '), kvar: s.kvarAtNominalV, responseA: s.responseThresholdA })),
+            ctRatingWords(ct.primaryA, ct.secondaryA),
+            least.responseThresholdA,
+          ),
+          path: 'controller.ctPrimaryA',
+          value: Math.min(...below.map((s) => s.responseThresholdA)),
+          threshold: least.responseThresholdA,
+        },
+      ]
+    : [];
   return {
     ...selection,
     steps,
     controller,
-    warnings: [...selection.warnings.filter((w) => !CT_WARNINGS.has(w.code)), ...(controller ? controllerWarnings(controller) : [])],
+    leastStep: least,
+    warnings: [...selection.warnings.filter((w) => !CT_WARNINGS.has(w.code)), ...(controller ? controllerWarnings(controller) : []), ...belowWarning],
   };
 }

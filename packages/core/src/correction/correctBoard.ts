@@ -27,7 +27,7 @@ import { nothingToBuildOf, withheldBuildOf } from './nothingToBuild.js';
 import { catalogueUnitOf, TYPICAL_CATALOGUES } from './unitCatalogues.js';
 import type { TargetDefinition } from './correctionSpec.js';
 import { withCtReading, type CtReading } from './controllerSettings.js';
-import { arrangementNames, correctionCautions, nothingToBuildCautions, exemptLeadingLines, exemptLeadingWords, infeasibleReason, lostNeutralCaution, lostNeutralUnequal, MODEL_CAUTION, meteringWarning, reportSummary, warningText } from './correctionWording.js';
+import { arrangementNames, correctionCautions, ctRatingWords, nothingToBuildCautions, exemptLeadingLines, exemptLeadingWords, infeasibleReason, lostNeutralCaution, lostNeutralUnequal, MODEL_CAUTION, meteringWarning, reportSummary, warningText } from './correctionWording.js';
 import { definedOnly } from './_internal/optionSchemas.js';
 import { assertViableBoard } from '../analysis/viableOperatingPoint.js';
 import { CORRECTION_DEFAULTS, toleranceFractions } from './correctionDefaults.js';
@@ -196,6 +196,15 @@ function reactorWords(equipment: readonly EquipmentGroup[], label: PhaseLabeller
  * report.verification.board // the corrected board, for another simulator
  */
 export function correctBoard(board: Board, spec: unknown): CorrectionReport {
+  return correctBoardBuilt(board, spec, { detunedSteps: false });
+}
+
+/**
+ * `correctBoard` with how the bank is built (not exported from the package): `detunedSteps` where the
+ * catalogue holds the fundamental equivalents of capacitors behind detuning reactors (correctWithHarmonics.ts),
+ * so each switched step has its own reactor and the stricter least step applies (leastSwitchedStep.ts).
+ */
+export function correctBoardBuilt(board: Board, spec: unknown, construction: { readonly detunedSteps: boolean }): CorrectionReport {
   assertBoardModel(board);
   const checked = parseCorrectionSpec(spec, board);
   if (checked.arrangement === undefined)
@@ -222,13 +231,20 @@ export function correctBoard(board: Board, spec: unknown): CorrectionReport {
     if (!light) lightSizings.set(key, (light = buildable(sizeArrangement(scaled, parsed, { limitsOnly: true, ...(heldBranches ? { heldBranches } : {}) }))));
     return light;
   };
-  const selectUnits = (sized: SizedEquipment, how: { heldBranches?: readonly string[]; besideReactors?: 'up' } = {}, preference: BuildPreference = 'least-cost'): BankSelection =>
+  // Measured away from the board, the controller's CT reads there: the selection chooses it, and the least
+  // step on it, on the largest line current there before correction (set again on the verified build).
+  const meterForCt = meteringPlace(board, target.measuredAt);
+  const meterCurrentA = meterForCt ? Math.max(0, ...solveMeter(board, meterForCt).phases.map((p) => p.current.magnitude)) : undefined;
+  /** `nameHeldBack`: search again without the least step where the build fits worse, to name the step held back (only where the verdict needs it). */
+  const selectUnits = (sized: SizedEquipment, how: { heldBranches?: readonly string[]; besideReactors?: 'up' } = {}, preference: BuildPreference = 'least-cost', nameHeldBack = false): BankSelection =>
     selectBankUnitsPreferring(
       sized,
       definedOnly({
         practice: parsed.practice ?? defaultPractice(board.frequencyHz),
         catalogue: parsed.catalogue,
         minStepKvar: parsed.bank?.minStepKvar,
+        lineCurrentA: meterCurrentA,
+        detunedSteps: construction.detunedSteps,
         trimSteps: parsed.bank?.trimSteps,
         maxUnitsPerBranch: parsed.bank?.maxUnitsPerBranch,
         controller: parsed.controller,
@@ -242,6 +258,7 @@ export function correctBoard(board: Board, spec: unknown): CorrectionReport {
         besideReactors: how.besideReactors,
       }),
       preference,
+      nameHeldBack,
     );
   const verifyOptions = (equipment: VerifyCorrectionOptions['equipment']): VerifyCorrectionOptions =>
     definedOnly({
@@ -266,6 +283,8 @@ export function correctBoard(board: Board, spec: unknown): CorrectionReport {
     readonly passedOver?: CorrectionWarning;
     /** Verdict `withheld`: what the build would have done, why it is not offered. */
     readonly withheld: WithheldBuild | null;
+    /** The same selection made again naming the step the least step held back (LeastSwitchedStep.heldBack). */
+    readonly heldBackOf?: () => BankSelection['leastStep']['heldBack'];
   }
   const buildOf = (sized: SizedEquipment, selection: BankSelection | null): Build => {
     // Built with reactors, a compensator gets its reactors sized again beside the capacitors as built
@@ -306,13 +325,13 @@ export function correctBoard(board: Board, spec: unknown): CorrectionReport {
    * to the least-cost build). The second is chosen and re-solved only where the first falls short.
    */
   const provenBuildOf = (sized: SizedEquipment, how: { heldBranches?: readonly string[]; besideReactors?: 'up' } = {}): Build => {
-    const cheapest = buildOf(sized, selectUnits(sized, how));
+    const cheapest = { ...buildOf(sized, selectUnits(sized, how)), heldBackOf: () => selectUnits(sized, how, 'least-cost', true).leastStep.heldBack };
     // Proved: it meets the target across the tolerance and passes no limit; the second is for a build that does not.
     if (cheapest.verdict === 'meets' && limitsBroken(cheapest) === 0) return cheapest;
     const alternative = selectUnits(sized, how, 'equal-steps');
     const cheapestSelection = cheapest.selection!;
     if (stepsBought(alternative) === stepsBought(cheapestSelection)) return cheapest;
-    const equalSteps = buildOf(sized, alternative);
+    const equalSteps = { ...buildOf(sized, alternative), heldBackOf: () => selectUnits(sized, how, 'equal-steps', true).leastStep.heldBack };
     const rank = (b: Build) => [BUILD_VERDICT_RANK[b.verdict], limitsBroken(b), b.cost ?? Infinity];
     const [a, c] = [rank(equalSteps), rank(cheapest)];
     const wins = a[0]! !== c[0]! ? a[0]! < c[0]! : a[1]! !== c[1]! ? a[1]! < c[1]! : a[2]! < c[2]!;
@@ -380,7 +399,7 @@ export function correctBoard(board: Board, spec: unknown): CorrectionReport {
   // The controller's CT goes where it reads (where the target is measured, else the equipment's board) and
   // carries the largest current there: before, with every step in, or in the worst state of the switched
   // steps (a fixed reactor with the capacitors out, trim steps apart): chosen and checked on the build as verified.
-  const meter = meteringPlace(board, target.measuredAt);
+  const meter = meterForCt;
   const worst =
     asBuilt && asBuilt.controller
       ? worstStepState({
@@ -399,7 +418,10 @@ export function correctBoard(board: Board, spec: unknown): CorrectionReport {
   const ctReading: CtReading = verification.metering
     ? { place: 'metering-point', point: verification.metering.point, lines: verification.metering.lines, afterFrom: 'as-built', stepState }
     : { place: 'board', point: board.name, lines: verification.lines, afterFrom: 'as-built', stepState };
-  const built = asBuilt && withCtReading(asBuilt, ctReading, parsed.controller ?? {});
+  const withCt = asBuilt && withCtReading(asBuilt, ctReading, parsed.controller ?? {});
+  // Short of the target across the tolerance: the step the least step held back, where one would have fitted, is named.
+  const heldBack = withCt && chosen.verdict !== 'meets' && chosen.heldBackOf ? chosen.heldBackOf() : null;
+  const built = withCt && heldBack ? { ...withCt, leastStep: { ...withCt.leastStep, heldBack } } : withCt;
   const resizedWords = (r: NonNullable<typeof refit>['reactors']) => r.map((x) => ({ ...x, branch: label(x.branch) }));
   const resizing = refit ? { reactors: refit.reactors, objectiveSized: refit.objectiveSized, objectiveResized: refit.objectiveResized, converged: refit.converged, used: useRefit, solves: refit.solves } : null;
   const idealVerification = sizing.arrangement === 'balancing-compensator' ? verifyCorrection(board, verifyOptions(sizing.ideal.equipment)) : null;
@@ -432,6 +454,8 @@ export function correctBoard(board: Board, spec: unknown): CorrectionReport {
   } else if (chosen.verdict === 'misses') {
     status = 'misses-target-with-available-units';
     reasons.push(infeasibleReason.unitsMissTarget([...verification.check.shortfalls, ...(balance?.shortfalls ?? [])]));
+    // A build with a step below the least would have fitted: said beside the shortfall, with its figures.
+    if (built?.leastStep.heldBack) reasons.push(heldBackWords(built.leastStep, label));
     const pinned = widthlessTargetPf(target);
     if (pinned !== null) reasons.push(infeasibleReason.widthlessTarget(pinned, target.leading === 'allowed'));
     // Rounded down beside the reactors (kept at their continuous values the capacitors may not pass their
@@ -480,6 +504,8 @@ export function correctBoard(board: Board, spec: unknown): CorrectionReport {
     ...(sizing.arrangement === 'balancing-compensator' ? sizing.warnings : []),
     ...(built?.warnings ?? []).filter((w) => !settledByVerdict.has(w.code)),
     ...(chosen.passedOver ? [chosen.passedOver] : []),
+    // Met at nominal capacitance only where a smaller step would have fitted the ranges: said beside it (a miss says it in the reasons).
+    ...(status === 'meets-target-at-nominal-capacitance' && built?.leastStep.heldBack ? [heldBackWarning(built.leastStep, label)] : []),
     ...(resizing?.used ? [{ code: 'reactors-resized', message: warningText.reactorsResized(resizedWords(resizing.reactors)), path: null, value: null, threshold: null }] : []),
     ...verification.warnings,
     ...(verification.metering && built?.controller
@@ -523,6 +549,16 @@ export function correctBoard(board: Board, spec: unknown): CorrectionReport {
         ? nothingToBuildCautions(regionWords(conventionsOf(board).region, board.system).groundWord)
         : [...(lostNeutral.caution ? [lostNeutral.caution] : []), ...correctionCautions(regionWords(conventionsOf(board).region, board.system).groundWord)],
   };
+}
+
+/** A step below the least that would have fitted the capacitance ranges, in words with its figures. */
+function heldBackWords(least: BankSelection['leastStep'], label: PhaseLabeller): string {
+  const held = least.heldBack!;
+  return infeasibleReason.stepHeldBack({ ...held, branches: held.branches.map(label) }, { responseThresholdA: least.responseThresholdA, ct: ctRatingWords(least.ctPrimaryA, least.ctSecondaryA), detuned: least.detuned });
+}
+
+function heldBackWarning(least: BankSelection['leastStep'], label: PhaseLabeller): CorrectionWarning {
+  return { code: 'step-held-back', message: heldBackWords(least, label), path: null, value: least.heldBack!.responseThresholdA, threshold: least.responseThresholdA };
 }
 
 /** The largest line current before and after, A. */

@@ -24,8 +24,9 @@ export const CORRECTION_DEFAULTS = {
   share: 'equal',
   maxUnitsPerBranch: 24,
   /**
-   * A switched step below about 1 kvar does not pay for its contactor and
-   * controller output (common practice, no source).
+   * A switched step below about 1 kvar nameplate does not pay for its contactor and
+   * controller output (common practice, no source). No build has a smaller switched step
+   * (nor one below the least C/k, leastStepSecondaryShare).
    */
   minStepKvar: 1,
   trimSteps: 'auto',
@@ -46,6 +47,33 @@ export const CORRECTION_DEFAULTS = {
   ckSettingFraction: RESPONSE_SHARE_OF_CK,
   /** A C/k setting below this (A, on the CT secondary) is finer than controllers usually resolve (common practice, no source). */
   ckResolutionA: 0.02,
+  /**
+   * The least C/k of a switched step, as a share of the CT's rated secondary current (leastSwitchedStep.ts):
+   * 1 % of 5 A is 0.05 A. A class 1 CT may read its rated current up to 1 % off in ratio and about 1° off
+   * in phase (IEC 61869-2 class limits, from memory), which moves the reactive current it reports by 1–2 %
+   * of the secondary at full load: a step whose own reactive current is below about 1 % is lost in that
+   * error (a design choice, common practice, no source). Never below the controller's resolution over
+   * the setting share (ckResolutionA / ckSettingFraction ≈ 0.031 A), which decides on a 1 A secondary.
+   */
+  leastStepSecondaryShare: 0.01,
+  /**
+   * The same for a detuned step: twice the plain share. Each detuned step has its own reactor, contactor
+   * and output; a reactor for a step a CT can hardly see is not built (common practice, no source).
+   */
+  leastDetunedStepSecondaryShare: 0.02,
+  /**
+   * A detuned step also delivers at least this much at nominal voltage, kvar: below a few kvar a reactor
+   * per step costs more than the capacitance it switches (common practice, no source).
+   */
+  leastDetunedStepKvar: 2.5,
+  /**
+   * Widest ratio of the largest switched step's C/k to the smallest's the build is ranked to keep within,
+   * and warned past: the binary series 1:2:4:8 is the widest step series controllers commonly take (from
+   * memory, common practice), and 10 leaves room for the spread of delivered kvar between units of
+   * different ratings. Past it the largest step moves the reactive current by more than ten thresholds,
+   * so the band must be wide or the controller hunts (a design choice, common practice, no source).
+   */
+  widestStepRatio: 10,
   /**
    * A unit must deliver at least this share of its nameplate at the nominal voltage
    * across it (the rating is chosen for the system, not for a board a few per cent

@@ -360,6 +360,49 @@ export interface ControllerSettings {
   readonly reconnectionDelayS: number;
 }
 
+/** The least output of a switched step of one kind, at nominal voltage. */
+export interface StepFloor {
+  /** How the step's C/k is read (BankStep.thresholdBasis). */
+  readonly kind: 'three-phase' | 'single-phase' | 'line-pair';
+  /** The voltage its C/k is read at: U_LL for three-phase and line-pair steps, the voltage across a single-phase one. */
+  readonly voltageV: number;
+  /** kvar at nominal voltage that gives the least C/k (and, detuned, at least the detuned floor). */
+  readonly kvarAtNominalV: number;
+}
+
+/**
+ * The least switched step (leastSwitchedStep.ts): no switched step is built below it. Common practice, no
+ * source: a step whose C/k is below a share of the CT's rated secondary is lost in the CT's error.
+ */
+export interface LeastSwitchedStep {
+  /** True when the steps sit behind detuning reactors (the stricter share and a least kvar). */
+  readonly detuned: boolean;
+  /** Least C/k of a switched step, A on the CT secondary. */
+  readonly responseThresholdA: number;
+  /** That C/k as a share of the CT's rated secondary current (0.01 = 1 %). */
+  readonly shareOfSecondary: number;
+  /** The CT it is judged on (the controller's). */
+  readonly ctPrimaryA: number;
+  readonly ctSecondaryA: number;
+  /** The same floor in kvar at nominal voltage, for each kind of step the bank may have. */
+  readonly floors: readonly StepFloor[];
+  /** Least nameplate of a switched step, kvar (bank.minStepKvar). */
+  readonly nameplateKvar: number;
+  /** A detuned step's least output at nominal voltage, kvar; null for a plain bank. */
+  readonly detunedKvar: number | null;
+  /** Widest largest/smallest C/k of the switched steps a build is kept within where one fits as well; wider is warned. */
+  readonly widestRatio: number;
+  /** Largest over smallest C/k of the switched steps as built; null with fewer than two. */
+  readonly ratio: number | null;
+  /**
+   * Where no build kept to the least step fits a branch's capacitance range and one with a smaller
+   * step would: that step (not built), its branches as data keys (A-B). Null otherwise.
+   */
+  readonly heldBack: { readonly branches: readonly string[]; readonly kvarAtNominalV: number; readonly responseThresholdA: number } | null;
+  /** The least step in words, for the report. */
+  readonly words: string;
+}
+
 export interface BranchSelection {
   readonly branch: string;
   /** Units serving this branch (a three-phase unit counts once per branch). */
@@ -425,6 +468,8 @@ export interface BankSelection {
   readonly cost: { readonly statement: string; readonly unitCostKvar: number; readonly value: number };
   readonly steps: readonly BankStep[];
   readonly controller: ControllerSettings | null;
+  /** The least switched step the build kept to (kvar and C/k), and the step series as built. */
+  readonly leastStep: LeastSwitchedStep;
   readonly selections: readonly BranchSelection[];
   readonly nameplateKvar: number;
   /** Delivered at the solved design-load voltage with every step on, kvar. */

@@ -6,7 +6,7 @@ import type { PhaseLabel } from '../board/conventions/phaseNames.js';
 import type { PhaseId } from '../board/boardModel.js';
 import type { PowerFactorSense } from '../analysis/boardResult.js';
 import type { Arrangement, TargetDefinition } from './correctionSpec.js';
-import type { BuildVerdict, CtBasis, SmallBranch, StepStateCurrent, SparedBranch, TargetName } from './correctionResult.js';
+import type { BuildVerdict, CtBasis, LeastSwitchedStep, SmallBranch, StepStateCurrent, SparedBranch, TargetName } from './correctionResult.js';
 import { argumentIssueError, checkListArgument, checkNumberArgument, checkObjectArgument, checkTextArgument, checkWordArgument } from '../_internal/argumentChecks.js';
 import { starWordOf, type StarWord } from '../board/conventions/regionWords.js';
 import { REGIONS, type Region } from '../board/conventions/region.js';
@@ -117,6 +117,11 @@ export const infeasibleReason = {
     return `${head}; the net compensation, capacitors less the ${reactor.toFixed(2)} kvar of reactors, falls from ${(ideal - reactor).toFixed(2)} to ${(built - reactor).toFixed(2)} kvar${tried}`;
   },
   unitsMissTarget: (shortfalls: readonly string[]) => `with the units chosen the corrected board misses the target: ${shortfalls.join('; ')}`,
+  /** A build with a step below the least switched step would fit the capacitance ranges; it is not built. */
+  stepHeldBack: (step: { branches: readonly string[]; kvarAtNominalV: number; responseThresholdA: number }, least: { responseThresholdA: number; ct: string; detuned: boolean }) =>
+    `a build with a ${step.kvarAtNominalV.toFixed(2)} kvar switched step on ${step.branches.join(', ')} (C/k ${step.responseThresholdA.toFixed(3)} A) would fit the capacitance ranges, but that is below the least switched step (C/k ${least.responseThresholdA.toFixed(3)} A on the ${least.ct} CT${
+      least.detuned ? ', with its own detuning reactor' : ''
+    }), so it is not built: the bank as built stops short there; correction at the loads, or a fixed part where the light load allows it, closes the gap`,
   widthlessTarget: (pf: number, leadingAllowed: boolean) =>
     `the target leaves no band to land in (${
       leadingAllowed ? 'PF 1.000, and with leading allowed no further than PF 1.000 leading: the leading limit is the target unless target.minLeadingPf is given' : pf >= 1 ? 'PF 1.000 and never leading' : `PF at least and at most ${f3(pf)} lagging`
@@ -148,6 +153,36 @@ export const limitWords = (target: { readonly leading?: string | undefined; read
  */
 const STEP_STATES_WORDS =
   '. The estimate is for every step in: with fewer steps in the orders rise and can fall near other harmonic orders (the harmonic check, run where the board has a harmonics section, scans every step combination)';
+
+/** A switched step as a warning names it: its output, the branches it serves, kvar at nominal voltage and C/k. */
+export interface StepWords {
+  readonly output: number;
+  readonly branches: string;
+  readonly kvar: number;
+  readonly responseA: number;
+}
+const stepWords = (s: StepWords) => `${s.output} (${s.branches}, ${s.kvar.toFixed(2)} kvar, C/k ${s.responseA.toFixed(3)} A)`;
+
+/** A CT as written on its plate: 400/5 A, 12.5/5 A. */
+export const ctRatingWords = (primaryA: number, secondaryA: number) => `${Number(primaryA.toFixed(2))}/${Number(secondaryA.toFixed(2))} A`;
+
+const STEP_KIND_WORDS = { 'three-phase': 'three-phase', 'line-pair': 'across a line pair', 'single-phase': 'single-phase' } as const;
+
+/**
+ * The least switched step in words: its C/k on the CT and why, the kvar at nominal voltage that gives
+ * for each kind of step the bank may have, and the least nameplate.
+ */
+export function leastStepWords(least: Omit<LeastSwitchedStep, 'ratio' | 'heldBack' | 'words'>): string {
+  const share = `${trimmed(100 * least.shareOfSecondary)} % of its ${trimmed(least.ctSecondaryA)} A secondary`;
+  const why = least.detuned ? `${share} for a detuned step, and ${trimmed(least.detunedKvar ?? 0)} kvar at nominal voltage: a reactor per step is not built for less` : `${share}: a smaller step's reactive current is lost in the CT's error`;
+  // The voltage once where every kind is read at the same one.
+  const oneVoltage = least.floors.every((f) => Math.abs(f.voltageV - least.floors[0]!.voltageV) < 0.5);
+  const at = (v: number) => ` at ${v.toFixed(0)} V`;
+  const kinds = least.floors.map((f) => `${f.kvarAtNominalV.toFixed(2)} kvar ${STEP_KIND_WORDS[f.kind]}${oneVoltage ? '' : at(f.voltageV)}`);
+  return `C/k ${least.responseThresholdA.toFixed(3)} A on the ${ctRatingWords(least.ctPrimaryA, least.ctSecondaryA)} CT (${why}; common practice, no source)${
+    kinds.length ? `, i.e. ${kinds.join(' or ')}${oneVoltage ? `${at(least.floors[0]!.voltageV)} nominal` : ''}` : ''
+  }, and ${trimmed(least.nameplateKvar)} kvar nameplate`;
+}
 
 export const warningText = {
   reactorsResized: (reactors: ResizingWords['reactors']) =>
@@ -230,8 +265,10 @@ export const warningText = {
     `the C/k setting (${settingA.toFixed(3)} A) is below about ${resolutionA} A, finer than controllers usually resolve (common practice, no source): ${chosen ? 'the smallest step is small for this CT' : 'a smaller CT primary'} or a larger smallest step brings it up`,
   outputsShort: (branches: readonly PhaseLabel[], outputs: number) =>
     `${branches.join(', ')}: no build fits in ${outputs} controller output${outputs === 1 ? '' : 's'}; steps were merged beyond what the controller allows`,
-  stepBelowMinimum: (branches: readonly PhaseLabel[], minKvar: number) =>
-    `${branches.join(', ')}: no build keeps every switched step at or above ${f1(minKvar)} kvar; the closest build is used`,
+  stepSeriesWide: (ratio: number, smallest: StepWords, largest: StepWords, widest: number) =>
+    `the switched steps span 1:${trimmed(ratio)} in C/k, from step ${stepWords(smallest)} to step ${stepWords(largest)}: wider than 1:${widest}, the largest step moves the reactive current by ${trimmed(ratio)} times the smallest's threshold, so the controller must take such a step series (binary 1:2:4:8 is the widest common one, common practice) or its band must hold that swing without hunting`,
+  stepsBelowLeastOnCt: (steps: readonly StepWords[], ct: string, leastA: number) =>
+    `on the ${ct} CT, chosen on the bank as built, step${steps.length === 1 ? '' : 's'} ${steps.map(stepWords).join(', ')} ${steps.length === 1 ? 'reads' : 'read'} below the least C/k of ${leastA.toFixed(3)} A the steps were chosen for: the controller may not tell ${steps.length === 1 ? 'it' : 'them'} from the CT's error; a CT of lower primary where the line current allows, or larger steps`,
   starPointShift: (shiftV: number, percent: number, lowV: number, highV: number, star: StarWord = 'star') =>
     `the floating ${star} point of the bank sits ${f1(shiftV)} V (${percent.toFixed(0)} % of line-to-neutral) from the centroid of the line voltages, so its elements see ${f1(lowV)}–${f1(highV)} V: a ${star} bank with unequal branches on a board without a neutral works against itself; consider a delta bank`,
   reactorsNeeded: (branches: readonly PhaseLabel[], capacitorShortfalls: readonly string[]) =>
@@ -507,7 +544,7 @@ export const selectionWording = {
   costStatement: (unitCostKvar: number, preference: 'least-cost' | 'equal-steps' = 'least-cost', singleLineStepsKvar: number | null = null) =>
     `least cost = nameplate kvar + ${unitCostKvar} kvar-equivalent per unit bought${
       preference === 'least-cost' && singleLineStepsKvar !== null ? ` (single-line steps ranked ${trimmed(singleLineStepsKvar)} dearer: every line measured, coarser steps)` : ''
-    }, among the builds ${preference === 'equal-steps' ? 'of equal steps (single-line steps only where none fits) ' : ''}that best fit the tolerance window, the controller outputs and the minimum step`,
+    }, among the builds ${preference === 'equal-steps' ? 'of equal steps (single-line steps only where none fits) ' : ''}that best fit the tolerance window and the controller outputs with no switched step below the least step`,
   /** The cost of a detuned bank: its capacitors' real nameplate and its detuning reactors, counted as a compensator's reactors are. */
   detunedCostStatement: (unitCostKvar: number, percent: number, reactorFactor: number) =>
     `cost = nameplate kvar of the capacitors + ${unitCostKvar} kvar-equivalent per unit bought + the ${percent} % detuning reactors at ${reactorFactor} × their kvar (${percent} % of the capacitors' nameplate); the units were chosen as their fundamental equivalents behind the reactors`,

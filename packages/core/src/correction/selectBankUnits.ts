@@ -17,7 +17,9 @@
  * - the design state (everything on at the design load) reaches C_req/(1 − tol⁻)
  *   and stays ≤ C_limit/(1 + tol⁺) (see `tierOf` for the order of compromises);
  * - the fixed part stays within what the light load can take at +tol;
- * - at most the controller's outputs, every switched step at least the minimum step.
+ * - at most the controller's outputs; no switched step below the least step (its nameplate below
+ *   `minStepKvar`, or its C/k below a share of the CT secondary, stricter for detuned steps:
+ *   leastSwitchedStep.ts), and a step series no wider than about 1:10 where a build fits as well.
  * Among builds that fit equally well, the least cost = nameplate kvar + a fixed
  * kvar-equivalent per unit (weights in `CORRECTION_DEFAULTS`), then the fewest units, and only
  * then the build that sits most centrally in its windows (see bankSearch.ts). The study
@@ -28,13 +30,14 @@ import { CONTROLLER_OUTPUTS, PRACTICES, capacitorUnitSchema, type CapacitanceTol
 import { CORRECTION_DEFAULTS, toleranceFractions } from './correctionDefaults.js';
 import { TYPICAL_CATALOGUES, catalogueUnitOf, type CatalogueUnit } from './unitCatalogues.js';
 import type { EquipmentBranch, EquipmentGroup } from './equipment.js';
-import type { BankSelection, BankSizing, BankStep, BranchSelection, CorrectionWarning, LineComparison, SelectedUnit, SizedEquipment, UnbuildableBranches } from './correctionResult.js';
+import type { BankSelection, BankSizing, BankStep, BranchSelection, CorrectionWarning, LeastSwitchedStep, LineComparison, SelectedUnit, SizedEquipment, StepFloor, UnbuildableBranches } from './correctionResult.js';
 import { limitWords, selectionWording, warningText } from './correctionWording.js';
 import { parseOptions } from '../_internal/zodIssues.js';
 import { labellerOf, PHASE_NAMINGS, type PhaseNaming } from '../board/conventions/phaseNames.js';
 import { REGIONS, type Region } from '../board/conventions/region.js';
 import { starWordOf } from '../board/conventions/regionWords.js';
-import { cheapestStepUnits, firstFit, leastCostOverWindows, searchSet, shortOfTarget, type Need, type SetBuild, type UnitChoice } from './_internal/bankSearch.js';
+import { cheapestStepUnits, firstFit, leastCostOverWindows, searchSet, shortOfTarget, switchedStepsOf, type Need, type SetBuild, type SetRules, type UnitChoice } from './_internal/bankSearch.js';
+import { leastStepKvar, leastStepResponse, leastSwitchedStep, stepSeriesSpan, stepSeriesWarning } from './leastSwitchedStep.js';
 import { defaultPractice } from './capacitorDischarge.js';
 import { controllerSettings, controllerWarnings, ctBasisOf, resolveCurrentTransformer, responseThresholdA } from './controllerSettings.js';
 import { checkObjectArgument } from '../_internal/argumentChecks.js';
@@ -45,8 +48,13 @@ export interface SelectBankUnitsOptions {
   readonly practice?: Practice;
   /** Units to build from. @defaultValue the practice's built-in typical catalogue (`TYPICAL_CATALOGUES`) */
   readonly catalogue?: readonly CapacitorUnitSpec[];
-  /** Smallest switched step, kvar nameplate. @defaultValue 1 */
+  /** Smallest switched step, kvar nameplate (the least C/k on the CT applies as well). @defaultValue 1 */
   readonly minStepKvar?: number;
+  /**
+   * The units are the fundamental equivalents of capacitors behind detuning reactors, one reactor per
+   * step: the stricter least step (leastSwitchedStep.ts). @defaultValue false
+   */
+  readonly detunedSteps?: boolean;
   /** Single-phase trim steps on unbalanced three-phase sets. @defaultValue 'auto' */
   readonly trimSteps?: 'auto' | 'none';
   /** Most units in one branch. @defaultValue 24 */
@@ -85,6 +93,7 @@ const selectOptionsSchema = z.strictObject({
   practice: z.enum(PRACTICES).optional(),
   catalogue: z.array(capacitorUnitSchema).min(1).optional(),
   minStepKvar: z.number().nonnegative().optional(),
+  detunedSteps: z.boolean().optional(),
   trimSteps: z.enum(['auto', 'none']).optional(),
   maxUnitsPerBranch: z.int().min(1).max(200).optional(),
   controller: z
@@ -134,7 +143,7 @@ const elementF = (u: CatalogueUnit) => ((u.kind === 'three-phase' ? u.ratedKvar 
  * selection.controller?.responseThresholdA    //=> C/k of the smallest step, A
  */
 export function selectBankUnits(sized: SizedEquipment, options?: SelectBankUnitsOptions): BankSelection {
-  return selectBankUnitsPreferring(sized, options, 'least-cost');
+  return selectBankUnitsPreferring(sized, options, 'least-cost', true);
 }
 
 /**
@@ -145,8 +154,13 @@ export function selectBankUnits(sized: SizedEquipment, options?: SelectBankUnits
  */
 export type BuildPreference = 'least-cost' | 'equal-steps';
 
-/** `selectBankUnits` with the preference given (the study's candidates; not exported from the package). */
-export function selectBankUnitsPreferring(sized: SizedEquipment, options: SelectBankUnitsOptions | undefined, preference: BuildPreference): BankSelection {
+/**
+ * `selectBankUnits` with the preference given (the study's candidates; not exported from the package).
+ * `nameHeldBack`: where a set's build fits worse than one with a step below the least would, search
+ * again without the least step to name that step (`leastStep.heldBack`); the study asks only where its
+ * verdict falls short, as the second search costs as much as the first.
+ */
+export function selectBankUnitsPreferring(sized: SizedEquipment, options: SelectBankUnitsOptions | undefined, preference: BuildPreference, nameHeldBack = false): BankSelection {
   checkObjectArgument(sized, 'sized', 'a sizing from sizeStarBank, sizeDeltaBank or sizeBalancingCompensator', ['frequencyHz', 'branches', 'equipment']);
   const opts = parseOptions(selectOptionsSchema, options, 'selectBankUnits options');
   const practice = opts.practice ?? defaultPractice(sized.frequencyHz);
@@ -171,6 +185,17 @@ export function selectBankUnitsPreferring(sized: SizedEquipment, options: Select
 
   // Per branch: the window and the voltage rule.
   const slots = sized.equipment.flatMap((g) => g.branches);
+  // The board has three lines where any slot touches C: a three-phase board's equipment always spans its
+  // three lines (a delta bank lists A-B, B-C and C-A even where one is empty); a split-phase board has A and B.
+  const threePhaseLines = slots.some((s) => s.from === 'C' || s.to === 'C');
+  // Alone, a selection knows only the equipment's board and the continuous sizing's after state:
+  // correctBoard chooses the CT again on the build it verified and where the controller reads (withCtReading).
+  const ctBasis = ctBasisOf(opts.lineCurrentA !== undefined ? { givenA: opts.lineCurrentA } : { place: 'board', point: null, lines: sizedLines(sized), afterFrom: 'as-sized' });
+  const ct = resolveCurrentTransformer(controllerSpec, ctBasis.currentA);
+  const detuned = opts.detunedSteps ?? false;
+  // The least step on this CT; each set's floors in capacitance come from it (`leastStepFOf`).
+  const leastOnCt = (kinds: readonly Pick<StepFloor, 'kind' | 'voltageV'>[]) => leastSwitchedStep({ ct, detuned, minStepKvar, kinds });
+  const leastResponseA = leastStepResponse(ct.secondaryA, detuned).responseThresholdA;
   // Units are rated for the system's voltage: 277 V on a 480Y/277 board, though its model holds 277.1 V.
   const ratedAt = (slot: { vNominal: number; ratedV?: number }) => slot.ratedV ?? slot.vNominal;
   // Beside reactors kept at their continuous value a capacitor may not grow past its requirement (the
@@ -230,6 +255,26 @@ export function selectBankUnitsPreferring(sized: SizedEquipment, options: Select
       return u.ratedV >= info.requiredRatedV * (1 - 1e-12) && delivered >= floor - 1e-12;
     });
   const choiceOf = (usable: Usable, unitsPerCount: number): UnitChoice => ({ unit: usable.unit, index: usable.index, elementF: elementF(usable.unit), unitsPerCount });
+  /**
+   * How a step on these branches reads on the controller (as `makeStep` states it), and its kvar at
+   * nominal voltage and C/k per farad on each branch: C/k and kvar are linear in the capacitance.
+   */
+  const stepReading = (indices: readonly number[]) => {
+    const slot = branchInfo[indices[0]!]!.slot;
+    const lineToLine = slot.to === 'N' || slot.to === 'star' ? slot.vNominal * Math.sqrt(3) : slot.vNominal;
+    const basis: StepFloor['kind'] = indices.length === 3 ? 'three-phase' : slot.to !== 'N' && slot.to !== 'star' && threePhaseLines ? 'line-pair' : 'single-phase';
+    const voltageV = basis === 'single-phase' ? slot.vNominal : lineToLine;
+    const kvarPerF = indices.reduce((sum, i) => sum + (omega * ratedAt(branchInfo[i]!.slot) ** 2) / 1000, 0);
+    return { basis, voltageV, kvarPerF, ckPerF: responseThresholdA(kvarPerF, basis, voltageV, ct.primaryA / ct.secondaryA) };
+  };
+  /** The least switched step's capacitance per branch for a step read as `reading`, F (the larger of C/k and, detuned, the least kvar). */
+  const leastStepFOf = (reading: ReturnType<typeof stepReading>) => leastStepKvar(leastResponseA, reading.basis, reading.voltageV, ct.primaryA / ct.secondaryA, detuned) / reading.kvarPerF;
+  /** Kinds of step the bank may have, for the least step's words (each once). */
+  const stepKinds: Pick<StepFloor, 'kind' | 'voltageV'>[] = [];
+  const addKind = (r: ReturnType<typeof stepReading>) => {
+    if (!stepKinds.some((k) => k.kind === r.basis && Math.abs(k.voltageV - r.voltageV) < 1e-6)) stepKinds.push({ kind: r.basis, voltageV: r.voltageV });
+  };
+  let heldBack: LeastSwitchedStep['heldBack'] = null;
 
   // An equal bank's own window, where the sizing found it (per-line targets on a three-phase bank).
   const equal = (sized as { equalShare?: { minKvar: number | null; limitKvar: number } | null }).equalShare ?? null;
@@ -284,20 +329,45 @@ export function selectBankUnitsPreferring(sized: SizedEquipment, options: Select
     const equalNeeds = three && !withReactor ? equalNeedsOf(set.indices) : undefined;
     const singleLineStepsKvar = three && trimsAllowed && balancedChoices.length > 0 ? CORRECTION_DEFAULTS.singleLineStepsKvar : 0;
     if (singleLineStepsKvar > 0 && trimChoices.some((c) => c.length)) equalStepsWeighed = true;
-    const search = (needs: readonly Need[]) =>
-      searchSet(
-        needs,
-        balancedChoices,
-        trimChoices,
-        { unitCostKvar, singleLineStepsKvar, minSwitchedSteps: CORRECTION_DEFAULTS.minSwitchedSteps, minStepKvar, outputs: outputsPerSet, maxUnitsPerBranch: maxUnits },
-        equalNeeds,
-        { equalStepsFirst: preference === 'equal-steps' },
-      );
+    const balancedReading = stepReading(set.indices);
+    const trimReadings = set.indices.map((i) => stepReading([i]));
+    if (balancedChoices.length) addKind(balancedReading);
+    trimReadings.forEach((r, k) => trimChoices[k]!.length && addKind(r));
+    const rules: SetRules = {
+      unitCostKvar,
+      singleLineStepsKvar,
+      minSwitchedSteps: CORRECTION_DEFAULTS.minSwitchedSteps,
+      minStepKvar,
+      leastStepF: { balanced: leastStepFOf(balancedReading), trims: trimReadings.map(leastStepFOf) },
+      ckPerF: { balanced: balancedReading.ckPerF, trims: trimReadings.map((r) => r.ckPerF) },
+      widestStepRatio: CORRECTION_DEFAULTS.widestStepRatio,
+      outputs: outputsPerSet,
+      maxUnitsPerBranch: maxUnits,
+    };
+    const search = (needs: readonly Need[], setRules: SetRules) => searchSet(needs, balancedChoices, trimChoices, setRules, equalNeeds, { equalStepsFirst: preference === 'equal-steps' });
     // Windows that hold together, where the sizing found them (each branch's own are then empty): the
     // best build over every set, ties to the narrowest; for equal steps first, the narrowest set a build
     // fits whole, else the best over every set.
     const overWindows = preference === 'equal-steps' ? firstFit : leastCostOverWindows;
-    const build = together && three ? overWindows(together.sets.map((w) => () => search(set.indices.map((i) => heldTogether(branchInfo[i]!, w, i))))) : search(infos.map((x) => x.need));
+    const searchWith = (setRules: SetRules) =>
+      together && three ? overWindows(together.sets.map((w) => () => search(set.indices.map((i) => heldTogether(branchInfo[i]!, w, i)), setRules))) : search(infos.map((x) => x.need), setRules);
+    const build = searchWith(rules);
+    // Where the build kept to the least step fits a range worse than one with a smaller step would, that
+    // step is named (not built): the study says so where the re-solved board misses the target.
+    // The floor can change the fit only where some unit is smaller than it (any count of larger ones passes).
+    const floorBinds =
+      balancedChoices.some((c) => c.elementF < rules.leastStepF.balanced * (1 - 1e-9)) || trimChoices.some((choices, k) => choices.some((c) => c.elementF < rules.leastStepF.trims[k]! * (1 - 1e-9)));
+    if (nameHeldBack && heldBack === null && floorBinds && Math.max(...build.tiers) > 0) {
+      const free = searchWith({ ...rules, leastStepF: { balanced: 0, trims: rules.leastStepF.trims.map(() => 0) } });
+      if (Math.max(...free.tiers) < Math.max(...build.tiers)) {
+        const below = switchedStepsOf(free, rules).filter((st) => st.responseA < leastResponseA * (1 - 1e-9) || st.capacitanceF < (st.branches.length === 1 ? rules.leastStepF.trims[st.branches[0]!]! : rules.leastStepF.balanced) * (1 - 1e-9));
+        const smallest = below.reduce<(typeof below)[number] | null>((a, b) => (a === null || b.responseA < a.responseA ? b : a), null);
+        if (smallest) {
+          const kvarPerF = smallest.branches.length === 1 ? trimReadings[smallest.branches[0]!]!.kvarPerF : balancedReading.kvarPerF;
+          heldBack = { branches: smallest.branches.map((b) => branchInfo[set.indices[b]!]!.b.branch), kvarAtNominalV: smallest.capacitanceF * kvarPerF, responseThresholdA: smallest.responseA };
+        }
+      }
+    }
     set.indices.forEach((i, k) => {
       designF[i] = build.designF[k]!;
       fixedF[i] = build.fixedF[k]!;
@@ -316,17 +386,9 @@ export function selectBankUnitsPreferring(sized: SizedEquipment, options: Select
       if (tier === 5) warn('units-past-limit', warningText.unitsPastLimit(name, limit));
     });
     if (build.violations.outputs) warn('outputs-short', warningText.outputsShort(names, outputsPerSet), 'controller.outputs', outputs, null);
-    if (build.violations.minStep) warn('step-below-minimum', warningText.stepBelowMinimum(names, minStepKvar), 'bank.minStepKvar', null, minStepKvar);
   }
 
-  // The board has three lines where any slot touches C: a three-phase board's equipment always spans its
-  // three lines (a delta bank lists A-B, B-C and C-A even where one is empty); a split-phase board has A and B.
-  const threePhaseLines = slots.some((s) => s.from === 'C' || s.to === 'C');
   // Steps, numbered across sets.
-  // Alone, a selection knows only the equipment's board and the continuous sizing's after state:
-  // correctBoard chooses the CT again on the build it verified and where the controller reads (withCtReading).
-  const ctBasis = ctBasisOf(opts.lineCurrentA !== undefined ? { givenA: opts.lineCurrentA } : { place: 'board', point: null, lines: sizedLines(sized), afterFrom: 'as-sized' });
-  const ct = resolveCurrentTransformer(controllerSpec, ctBasis.currentA);
   const steps: BankStep[] = [];
   let output = 0;
   const selected = (c: UnitChoice, indices: readonly number[]): SelectedUnit => ({
@@ -462,6 +524,9 @@ export function selectBankUnitsPreferring(sized: SizedEquipment, options: Select
   });
   // A CT given in the file or on the command line is checked against what it must read.
   if (controller) warnings.push(...controllerWarnings(controller));
+  const seriesWarning = stepSeriesWarning(steps, label);
+  if (seriesWarning) warnings.push(seriesWarning);
+  const leastStep: LeastSwitchedStep = { ...leastOnCt(stepKinds), ratio: stepSeriesSpan(steps)?.ratio ?? null, heldBack };
   const nameplateKvar = steps.reduce((s, st) => s + st.nameplateKvar, 0);
   const units = steps.reduce((s, st) => s + st.units, 0);
   // Many small units forced by a narrow capacitance range: say what sets the range and what would widen it.
@@ -506,6 +571,7 @@ export function selectBankUnitsPreferring(sized: SizedEquipment, options: Select
     cost: { statement: selectionWording.costStatement(unitCostKvar, preference, equalStepsWeighed ? CORRECTION_DEFAULTS.singleLineStepsKvar : null), unitCostKvar, value: nameplateKvar + unitCostKvar * units },
     steps,
     controller,
+    leastStep,
     selections,
     nameplateKvar,
     deliveredKvar: steps.reduce((s, st) => s + st.deliveredKvar, 0),

@@ -16,7 +16,7 @@
  * its detuning factor, and its harmonics are solved with the series L–C steps.
  */
 import type { Board, BoardLoad, Terminal } from '../board/boardModel.js';
-import { correctBoard } from '../correction/correctBoard.js';
+import { correctBoard, correctBoardBuilt } from '../correction/correctBoard.js';
 import { compareCorrections, figuresOf, recommendArrangement, specFor, type CorrectionComparison } from '../correction/compareCorrections.js';
 import type { Arrangement } from '../correction/correctionSpec.js';
 import { parseCorrectionSpec } from '../correction/validateCorrectionSpec.js';
@@ -413,7 +413,7 @@ export function correctWithBankCheck<Check>(
   const detuned = factors.map((percent) => {
     const p = percent / 100;
     const variantStudy = { ...(study as Record<string, unknown>), catalogue: catalogue.map((u) => equivalentUnit(u, p)) };
-    return variantOf(checkBank, board, asDetuned(correctBoard(board, variantStudy), p, percent, plain.report.selection), `detuned ${percent} %`, percent);
+    return variantOf(checkBank, board, asDetuned(correctBoardBuilt(board, variantStudy, { detunedSteps: true }), p, percent, plain.report.selection), `detuned ${percent} %`, percent);
   });
   const runs = [plain, ...detuned];
   const third = plain.thirdPercent > 100 * SIGNIFICANT_THIRD;

@@ -5,8 +5,12 @@
  * capacitance to every branch, plus optional single-phase trim units on single
  * branches; a lone branch (split-phase, single-phase) gets single-phase units.
  *
- * Each build is judged on the hardware rules (unit cap, controller outputs,
- * minimum step) and per branch against the tolerance window (`tierOf`), then on
+ * No build has a switched step below the least step (its nameplate below
+ * `minStepKvar`, or its capacitance below `leastStepF`: the C/k a controller tells
+ * from its CT's error, leastSwitchedStep.ts); the empty build is always there.
+ * Each build is judged on the hardware rules (unit cap, controller outputs) and
+ * per branch against the tolerance window (`tierOf`), then on a step series no
+ * wider than `widestStepRatio` where one fits as well, then on
  * the stated cost (nameplate kvar + a fixed kvar-equivalent per unit; a build
  * with single-line steps ranked as if it cost `singleLineStepsKvar` more, so
  * equal steps are kept unless those save more) and the units bought, and only
@@ -48,7 +52,14 @@ export interface SetRules {
   readonly singleLineStepsKvar: number;
   /** Fewest equal switched steps wanted, where outputs and the minimum step allow. */
   readonly minSwitchedSteps: number;
+  /** Least nameplate of a switched step, kvar. */
   readonly minStepKvar: number;
+  /** Least capacitance per branch of a switched step, F: a balanced step's on each branch, and a trim's on each branch (0: none). */
+  readonly leastStepF: { readonly balanced: number; readonly trims: readonly number[] };
+  /** C/k per farad per branch, A/F: of a balanced step, and of a trim on each branch (the step series' measure). */
+  readonly ckPerF: { readonly balanced: number; readonly trims: readonly number[] };
+  /** Widest largest/smallest C/k of the switched steps a build is ranked to keep within. */
+  readonly widestStepRatio: number;
   /** Controller outputs available to this set. */
   readonly outputs: number;
   readonly maxUnitsPerBranch: number;
@@ -74,8 +85,12 @@ export interface SetBuild {
   readonly cost: number;
   /** The cost the ranking compares: `cost`, plus `SetRules.singleLineStepsKvar` where the build has trims. */
   readonly rankedCost: number;
-  /** Hardware rules broken (0 when none): outputs short, steps below the minimum, units per branch over the cap. */
+  /** Hardware rules broken (0 when none): outputs short, steps below the least step (never chosen), units per branch over the cap. */
   readonly violations: { readonly outputs: boolean; readonly minStep: boolean; readonly unitCap: boolean };
+  /** Largest over smallest C/k of the switched steps; null with fewer than two. */
+  readonly stepRatio: number | null;
+  /** True when `stepRatio` is wider than `SetRules.widestStepRatio`. */
+  readonly stepsWide: boolean;
   /** Equal steps short of the number wanted (0 when the bank follows the load finely enough). */
   readonly stepsShort: number;
 }
@@ -126,21 +141,64 @@ function countsNear(values: readonly (number | null)[], per: number): number[] {
 
 /**
  * Near-equal split of `count` units into the most steps the outputs allow with
- * every step at least `minStepKvar`; steps differ by at most one unit.
+ * every step at least `minStepKvar` and at least `leastCount` units; steps differ by at most one unit.
  */
-export function splitSteps(count: number, kvarPerCount: number, outputs: number, minStepKvar: number): { steps: number[]; outputsShort: boolean; belowMin: boolean } {
+export function splitSteps(count: number, kvarPerCount: number, outputs: number, minStepKvar: number, leastCount = 0): { steps: number[]; outputsShort: boolean; belowMin: boolean } {
+  const below = (units: number) => units * kvarPerCount < minStepKvar - 1e-9 || units < leastCount;
   if (count === 0) return { steps: [], outputsShort: false, belowMin: false };
-  if (outputs < 1) return { steps: [count], outputsShort: true, belowMin: count * kvarPerCount < minStepKvar - 1e-9 };
+  if (outputs < 1) return { steps: [count], outputsShort: true, belowMin: below(count) };
   let best = 1;
   for (let s = Math.min(outputs, count); s >= 1; s--)
-    if (Math.floor(count / s) * kvarPerCount >= minStepKvar - 1e-9) {
+    if (!below(Math.floor(count / s))) {
       best = s;
       break;
     }
   const base = Math.floor(count / best);
   const extra = count - base * best;
   const steps = Array.from({ length: best }, (_, k) => base + (k < extra ? 1 : 0));
-  return { steps, outputsShort: false, belowMin: base * kvarPerCount < minStepKvar - 1e-9 };
+  return { steps, outputsShort: false, belowMin: below(base) };
+}
+
+/** Units of `choice` a balanced switched step needs to reach the least step's capacitance (0: no floor). */
+const leastBalancedCount = (rules: SetRules, choice: UnitChoice) => (rules.leastStepF.balanced > 0 ? Math.ceil(rules.leastStepF.balanced / choice.elementF - 1e-9) : 0);
+
+/** True when a trim of `count` × `choice` on `branch` is below the least step. */
+const trimBelowLeast = (rules: SetRules, branch: number, choice: UnitChoice, count: number) =>
+  count * choice.unit.ratedKvar < rules.minStepKvar - 1e-9 || count * choice.elementF < (rules.leastStepF.trims[branch] ?? 0) * (1 - 1e-9);
+
+/** A switched step of a build: the set's branches it serves (indices in the set), capacitance per branch (F) and C/k (A). */
+export interface SwitchedStep {
+  readonly branches: readonly number[];
+  readonly capacitanceF: number;
+  readonly responseA: number;
+}
+
+/** The switched steps of a build, balanced ones first, with their C/k by the rules' measure. */
+export function switchedStepsOf(build: SetBuild, rules: SetRules): SwitchedStep[] {
+  const out: SwitchedStep[] = [];
+  const every = build.designF.map((_, i) => i);
+  if (build.balanced)
+    for (const count of build.balanced.stepCounts) {
+      const f = count * build.balanced.choice.elementF;
+      out.push({ branches: every, capacitanceF: f, responseA: f * rules.ckPerF.balanced });
+    }
+  for (const t of build.trims) {
+    const f = t.count * t.choice.elementF;
+    out.push({ branches: [t.branch], capacitanceF: f, responseA: f * (rules.ckPerF.trims[t.branch] ?? 0) });
+  }
+  return out;
+}
+
+/** Largest over smallest of positive C/k values; null with fewer than two. */
+function ratioOf(cks: readonly number[]): number | null {
+  if (cks.length < 2) return null;
+  let least = Infinity;
+  let most = 0;
+  for (const ck of cks) {
+    least = Math.min(least, ck);
+    most = Math.max(most, ck);
+  }
+  return least > 0 ? most / least : null;
 }
 
 function evaluate(
@@ -176,11 +234,22 @@ function evaluate(
   const tiers = needs.map((need, i) => tierOf(designF[i]!, need));
   const trimOutputs = trims.length;
   const kvarPerCount = balanced ? balanced.choice.unitsPerCount * balanced.choice.unit.ratedKvar : 0;
-  const split = splitSteps(balanced ? balanced.count - fixedCount : 0, kvarPerCount, rules.outputs - trimOutputs, rules.minStepKvar);
-  const trimBelowMin = trims.some((t) => t.count * t.choice.unit.ratedKvar < rules.minStepKvar - 1e-9);
-  const switchedKvar = balanced ? (balanced.count - fixedCount) * kvarPerCount : 0;
-  const wanted = switchedKvar > 0 ? Math.min(rules.minSwitchedSteps, rules.outputs - trimOutputs, Math.floor(switchedKvar / Math.max(rules.minStepKvar, 1e-9) + 1e-9)) : 0;
+  const leastCount = balanced ? leastBalancedCount(rules, balanced.choice) : 0;
+  const switchedCount = balanced ? balanced.count - fixedCount : 0;
+  const split = splitSteps(switchedCount, kvarPerCount, rules.outputs - trimOutputs, rules.minStepKvar, leastCount);
+  const trimBelowMin = trims.some((t) => trimBelowLeast(rules, t.branch, t.choice, t.count));
+  const switchedKvar = switchedCount * kvarPerCount;
+  const wanted =
+    switchedKvar > 0
+      ? Math.min(rules.minSwitchedSteps, rules.outputs - trimOutputs, Math.floor(switchedKvar / Math.max(rules.minStepKvar, 1e-9) + 1e-9), balanced && rules.leastStepF.balanced > 0 ? Math.floor((switchedCount * balanced.choice.elementF) / rules.leastStepF.balanced + 1e-9) : Infinity)
+      : 0;
+  const cks: number[] = [];
+  if (balanced) for (const c of split.steps) cks.push(c * balanced.choice.elementF * rules.ckPerF.balanced);
+  for (const t of trims) cks.push(t.count * t.choice.elementF * (rules.ckPerF.trims[t.branch] ?? 0));
+  const stepRatio = ratioOf(cks);
   return {
+    stepRatio,
+    stepsWide: stepRatio !== null && stepRatio > rules.widestStepRatio * (1 + 1e-9),
     stepsShort: Math.max(0, wanted - split.steps.length),
     balanced: balanced ? { ...balanced, fixedCount, stepCounts: split.steps } : null,
     trims,
@@ -234,9 +303,10 @@ function rankKey(build: SetBuild, needs: readonly Need[]): number[] {
   const steps = (build.balanced?.stepCounts.length ?? 0) + build.trims.length;
   // Misses within 5 % of the requirement count as equal, so cost decides between near-equal builds
   // (a bank that cannot reach the target anyway is not worth a dozen small cans for the last per cent).
-  // Never past a bound (leading) comes before the minimum step: a step below it is a nuisance, a leading line is not.
+  // A step series wider than the controller takes well is ranked after the fit (a build that meets the target
+  // with it beats one that does not without it) and before the cost; a step below the least is never chosen (`searchSet`).
   const past = build.tiers.some((t) => t === 5);
-  return [Number(v.unitCap), Number(v.outputs), Number(past), Number(v.minStep), worst, Math.round(missSum * 20), build.stepsShort, build.rankedCost, build.units, -steps, offCentre(build.designF, needs)];
+  return [Number(v.unitCap), Number(v.outputs), Number(past), worst, Math.round(missSum * 20), Number(build.stepsWide), build.stepsShort, build.rankedCost, build.units, -steps, offCentre(build.designF, needs)];
 }
 
 /** True when a build fits every branch's window and breaks no hardware rule. */
@@ -288,13 +358,12 @@ const better = (a: readonly number[], b: readonly number[]) => {
   return false;
 };
 
-/** `better` on two four-entry keys held as numbers (the trim search compares thousands of them). */
-function betterOfFour(a0: number, a1: number, a2: number, a3: number, b0: number, b1: number, b2: number, b3: number): boolean {
+/** `better` on two three-entry keys held as numbers (the trim search compares thousands of them). */
+function betterOfThree(a0: number, a1: number, a2: number, b0: number, b1: number, b2: number): boolean {
   const differs = (a: number, b: number) => Math.abs(a - b) > 1e-9 * Math.max(1, Math.abs(b));
   if (differs(a0, b0)) return a0 < b0;
   if (differs(a1, b1)) return a1 < b1;
   if (differs(a2, b2)) return a2 < b2;
-  if (differs(a3, b3)) return a3 < b3;
   return false;
 }
 
@@ -332,7 +401,7 @@ function equalKeyBound(needs: readonly Need[], rules: SetRules, choice: UnitChoi
   }
   const units = count * choice.unitsPerCount;
   const cost = count * choice.unitsPerCount * choice.unit.ratedKvar + rules.unitCostKvar * units;
-  return [Number(count > rules.maxUnitsPerBranch), 0, past, 0, worst, Math.round(missSum * 20), 0, cost, units, leastNegativeSteps(rules, needs.length), 0];
+  return [Number(count > rules.maxUnitsPerBranch), 0, past, worst, Math.round(missSum * 20), 0, 0, cost, units, leastNegativeSteps(rules, needs.length), 0];
 }
 
 /**
@@ -362,7 +431,7 @@ function choiceKeyBound(needs: readonly Need[], rules: SetRules, choice: UnitCho
   const kvar = 1 * choice.unitsPerCount * choice.unit.ratedKvar;
   const units = leastTrimKvar === null ? choice.unitsPerCount : choice.unitsPerCount + 1;
   const cost = leastTrimKvar === null ? kvar + rules.unitCostKvar * units : kvar + leastTrimKvar + rules.unitCostKvar * units + rules.singleLineStepsKvar;
-  return [0, 0, Number(worst === 5), 0, worst, 0, 0, cost, units, leastNegativeSteps(rules, needs.length), 0];
+  return [0, 0, Number(worst === 5), worst, 0, 0, 0, cost, units, leastNegativeSteps(rules, needs.length), 0];
 }
 
 /**
@@ -421,7 +490,7 @@ function trimsMayWin(
       missSum = missSum + miss(baseF, need, tier);
     }
     const fixedCost = rules.unitCostKvar * (units + trims) + rules.singleLineStepsKvar;
-    const key = (w: number, kvarBought: number) => [0, Number(trims > rules.outputs), past, 0, w, Math.round(missSum * 20), 0, kvarBought + fixedCost, units + trims, leastNegativeSteps(rules, n), 0];
+    const key = (w: number, kvarBought: number) => [0, Number(trims > rules.outputs), past, w, Math.round(missSum * 20), 0, 0, kvarBought + fixedCost, units + trims, leastNegativeSteps(rules, n), 0];
     // Where every trimmed branch may fit, a build either does (and buys what they lack) or leaves one at tier 1 or worse.
     if (trimmedCanFit ? mayWin(key(worst, fittingTrimKvar)) || mayWin(key(Math.max(worst, 1), trimKvar)) : mayWin(key(worst, trimKvar))) return true;
   }
@@ -430,10 +499,9 @@ function trimsMayWin(
 
 /** The best trim on one branch given the balanced capacitance already there (or none). */
 function bestTrim(branch: number, need: Need, baseF: number, choices: readonly UnitChoice[], rules: SetRules, baseUnits: number): TrimBuild | null {
-  // Ranked by [step below the minimum, tier, miss in 5 % steps, cost], compared as `better` compares keys.
+  // Ranked by [tier, miss in 5 % steps, cost], compared as `better` compares keys (a trim below the least step is not built).
   const baseTier = tierOf(baseF, need);
   let best: TrimBuild | null = null;
-  let bestBelow = 0;
   let bestTier = baseTier;
   let bestMiss = Math.round(miss(baseF, need, baseTier) * 20);
   let bestCost = 0;
@@ -457,18 +525,21 @@ function bestTrim(branch: number, need: Need, baseF: number, choices: readonly U
       add(Math.floor(f / choice.elementF + 1e-9));
       add(Math.ceil(f / choice.elementF - 1e-9));
     }
+    // The least trim allowed, where the window's ends ask for less: it may still fit, or come nearer.
+    const leastF = rules.leastStepF.trims[branch] ?? 0;
+    const least = Math.max(leastF > 0 ? Math.ceil(leastF / choice.elementF - 1e-9) : 0, choice.unit.ratedKvar > 0 ? Math.ceil(rules.minStepKvar / choice.unit.ratedKvar - 1e-9) : 0);
+    if (least > 1 && counts.some((n) => n >= 1 && n < least)) add(least);
     for (let j = 0; j < counts.length; j++) {
       const count = counts[j]!;
-      if (count < 1) continue;
+      // A trim below the least step is not built (no trim there is the alternative).
+      if (count < 1 || trimBelowLeast(rules, branch, choice, count)) continue;
       const f = baseF + count * choice.elementF;
       const tier = tierOf(f, need);
       const kvar = count * choice.unit.ratedKvar;
-      const below = kvar < rules.minStepKvar - 1e-9 ? 1 : 0;
       const missed = Math.round(miss(f, need, tier) * 20);
       const cost = kvar + rules.unitCostKvar * count;
-      if (betterOfFour(below, tier, missed, cost, bestBelow, bestTier, bestMiss, bestCost)) {
+      if (betterOfThree(tier, missed, cost, bestTier, bestMiss, bestCost)) {
         best = { branch, choice, count };
-        bestBelow = below;
         bestTier = tier;
         bestMiss = missed;
         bestCost = cost;
@@ -506,6 +577,8 @@ export function searchSet(
   // the best trimmed build so far and, across kinds, the best equal one (equal builds win ties).
   const trimmedMayWin = (bound: number[]) => (bestTrimmed === null || better(bound, bestTrimmedKey)) && (best === null || better(bound, acrossKinds(bestKey)));
   const consider = (build: SetBuild) => {
+    // A step below the least is not built: the build is not a candidate (the empty build always is).
+    if (build.violations.minStep) return;
     const k = build.trims.length ? acrossKinds(rankKey(build, build.needs)) : rankKey(build, build.needs);
     if (build.trims.length) {
       if (!bestTrimmed || better(k, bestTrimmedKey)) {
@@ -538,6 +611,9 @@ export function searchSet(
         put(Math.ceil(near[i]! / m) * m);
       }
     put(1);
+    // One switched step at the least step, where the windows ask for less (it may still fit, or come nearer).
+    const least = leastBalancedCount(rules, choice);
+    if (least > 1 && counts.some((c) => c < least)) put(least);
     countsOf.set(choice, counts);
     return counts;
   };
