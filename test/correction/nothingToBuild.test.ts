@@ -128,7 +128,10 @@ function assertNeverWorse(r: CorrectionReport): void {
   // Reactors are never built without a capacitor.
   if (r.sizing.arrangement === 'balancing-compensator' && reactorKvarOf(v.equipment) > 0.005) expect(v.equipment.flatMap((g) => g.branches).some((b) => b.susceptanceS > 0)).toBe(true);
   if (r.status === 'meets-target' || r.status === 'meets-target-at-nominal-capacitance' || r.status === 'misses-target-with-available-units') {
-    if (pf.before !== null && pf.after !== null) expect(pf.after, r.summary).toBeGreaterThanOrEqual(pf.before - 5e-4);
+    // A compensator that meets the target may trade PF for balance, which is what it is for: a single-phase
+    // resistive load spread over three lines (Steinmetz) leaves each line below PF 1 and above the target.
+    const balancing = r.sizing.arrangement === 'balancing-compensator' && r.status !== 'misses-target-with-available-units';
+    if (pf.before !== null && pf.after !== null && !balancing) expect(pf.after, r.summary).toBeGreaterThanOrEqual(pf.before - 5e-4);
     // An idle line is loaded only by a build that meets the target (a compensator spreading a single-phase load).
     if (r.status === 'misses-target-with-available-units') for (const l of v.lines) if (l.pf.before === null) expect(l.pf.after).toBeNull();
   }

@@ -385,10 +385,13 @@ export function correctBoardBuilt(board: Board, spec: unknown, construction: { r
   }
   // Nothing to build: a build that made things worse (withheld), or a best build from units of nothing at
   // all where exact capacitors would meet the target (the need is below what a unit or step can give).
+  // A build short of the target because the least switched step held a step back (the CT's resolution) is not
+  // "nothing to build": the step and the CT are what to change, and the report names them (stepHeldBack).
+  const heldBackStep = chosen.verdict !== 'meets' && chosen.heldBackOf ? chosen.heldBackOf() : null;
   const nothingCase =
     sizing.status !== 'already-meets-target' &&
     !chosen.selection?.unbuildable &&
-    (chosen.verdict === 'withheld' || (sizing.status === 'meets-target' && chosen.verdict === 'misses' && nothingBuilt(chosen.recommended)));
+    (chosen.verdict === 'withheld' || (sizing.status === 'meets-target' && chosen.verdict === 'misses' && nothingBuilt(chosen.recommended) && heldBackStep === null));
   const { sized, refit } = chosen;
   const selection = nothingCase ? null : chosen.selection;
   const recommended = nothingCase ? [] : chosen.recommended;
@@ -420,7 +423,7 @@ export function correctBoardBuilt(board: Board, spec: unknown, construction: { r
     : { place: 'board', point: board.name, lines: verification.lines, afterFrom: 'as-built', stepState };
   const withCt = asBuilt && withCtReading(asBuilt, ctReading, parsed.controller ?? {});
   // Short of the target across the tolerance: the step the least step held back, where one would have fitted, is named.
-  const heldBack = withCt && chosen.verdict !== 'meets' && chosen.heldBackOf ? chosen.heldBackOf() : null;
+  const heldBack = withCt ? heldBackStep : null;
   const built = withCt && heldBack ? { ...withCt, leastStep: { ...withCt.leastStep, heldBack } } : withCt;
   const resizedWords = (r: NonNullable<typeof refit>['reactors']) => r.map((x) => ({ ...x, branch: label(x.branch) }));
   const resizing = refit ? { reactors: refit.reactors, objectiveSized: refit.objectiveSized, objectiveResized: refit.objectiveResized, converged: refit.converged, used: useRefit, solves: refit.solves } : null;

@@ -320,10 +320,12 @@ export const nothingToBuildWords = {
   }): string => {
     const parts: string[] = [];
     for (const n of w.needs) {
-      const tan1 = n.kvar / n.kW;
+      // tan φ of the band the target sets on Q/|P| (correctionTarget.ts): an exporting line is written with |P|.
+      const exporting = n.kW < 0;
+      const tan1 = n.kvar / Math.abs(n.kW);
       const tan2 = Math.tan(Math.acos(n.pfTarget));
       parts.push(
-        `line ${n.line} needs ${kvarText(n.neededKvar)} kvar to go from PF ${n.pfBefore === null ? '-' : f3(n.pfBefore)} to ${f3(n.pfTarget)} (Q = P·(tan φ1 − tan φ2) = ${kvarText(n.kW)} kW × (${f3(tan1)} − ${f3(tan2)}))`,
+        `line ${n.line} needs ${kvarText(n.neededKvar)} kvar to go from PF ${n.pfBefore === null ? '-' : f3(n.pfBefore)} to ${f3(n.pfTarget)} (Q = ${exporting ? '|P|' : 'P'}·(tan φ1 − tan φ2) = ${kvarText(Math.abs(n.kW))} kW × (${f3(tan1)} − ${f3(tan2)})${exporting ? '; the line exports active power' : ''})`,
       );
       if (n.neededKvar < w.minStepKvar)
         parts.push(

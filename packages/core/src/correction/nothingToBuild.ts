@@ -23,7 +23,8 @@ export function lineNeeds(before: Pick<BoardResult, 'phases'>, pfTargetOf: (phas
   return before.phases.map((p) => {
     const pfTarget = pfTargetOf(p.phase);
     const tanTarget = Math.tan(Math.acos(pfTarget));
-    const needed = p.pf === null || p.kvar <= 0 ? 0 : Math.max(0, p.kvar - Math.max(p.kW, 0) * tanTarget);
+    // The target is a band on Q/|P| (correctionTarget.ts): a line that exports active power is judged on its size too.
+    const needed = p.pf === null || p.kvar <= 0 ? 0 : Math.max(0, p.kvar - Math.abs(p.kW) * tanTarget);
     return { phase: p.phase, kW: p.kW, kvar: p.kvar, pfBefore: p.pf, pfTarget, neededKvar: needed };
   });
 }
