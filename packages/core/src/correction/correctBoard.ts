@@ -24,7 +24,7 @@ import { verifyCorrection, type VerifyCorrectionOptions } from './verifyCorrecti
 import { scaleBoardLoads } from './scaleBoardLoads.js';
 import type { BankSelection, BankSizing, BuildVerdict, CompensatorSizing, CorrectionReport, CorrectionStatus, CorrectionVerification, CorrectionWarning, FewerBranchesBuild, LineComparison, RoundingBesideReactors, SizedEquipment } from './correctionResult.js';
 import { withCtReading, type CtReading } from './controllerSettings.js';
-import { arrangementNames, correctionCautions, exemptLeadingLines, exemptLeadingWords, infeasibleReason, lostNeutralCaution, lostNeutralUnequal, MODEL_CAUTION, meteringWarning, reportSummary, warningText } from './correctionWording.js';
+import { arrangementNames, resonanceSummaryClause, correctionCautions, exemptLeadingLines, exemptLeadingWords, infeasibleReason, lostNeutralCaution, lostNeutralUnequal, MODEL_CAUTION, meteringWarning, reportSummary, warningText } from './correctionWording.js';
 import { definedOnly } from './_internal/optionSchemas.js';
 import { assertViableBoard } from '../analysis/viableOperatingPoint.js';
 import { CORRECTION_DEFAULTS, toleranceFractions } from './correctionDefaults.js';
@@ -231,9 +231,10 @@ export function correctBoard(board: Board, spec: unknown): CorrectionReport {
       }),
       preference,
     );
-  const verifyOptions = (equipment: VerifyCorrectionOptions['equipment']): VerifyCorrectionOptions =>
+  const verifyOptions = (equipment: VerifyCorrectionOptions['equipment'], steps?: VerifyCorrectionOptions['steps']): VerifyCorrectionOptions =>
     definedOnly({
       equipment,
+      steps,
       target: parsed.target,
       arrangement: parsed.arrangement,
       lightLoad: parsed.lightLoad,
@@ -267,7 +268,8 @@ export function correctBoard(board: Board, spec: unknown): CorrectionReport {
           })
         : null;
     const recommended = sizing.status === 'already-meets-target' ? [] : refit?.used ? refit.equipment : (selection?.equipment ?? sized.equipment);
-    const verification = verifyCorrection(board, verifyOptions(recommended));
+    // The steps as built, so the resonance is judged in every state the controller can reach.
+    const verification = verifyCorrection(board, verifyOptions(recommended, selection && !selection.unbuildable && recommended.length ? selection.steps : undefined));
     const verdict: BuildVerdict = selection?.unbuildable
       ? 'no-units'
       : !verification.check.met || (sizing.arrangement === 'balancing-compensator' && !judgeBalance(verification.after, sizing.balance).met)
@@ -454,7 +456,9 @@ export function correctBoard(board: Board, spec: unknown): CorrectionReport {
       // A line that led before is held to another rule than the target as written: the verdict says which and why.
       (status.startsWith('meets') ? exemptWords(verification, label) : '') +
       // Meeting the PF target says nothing of what the equipment overloads: the summary says it beside the verdict.
-      (verification.overloadsCaused.length ? `; but with it in, ${verification.overloadsCaused.map((o) => o.message).join('; ')}` : ''),
+      (verification.overloadsCaused.length ? `; but with it in, ${verification.overloadsCaused.map((o) => o.message).join('; ')}` : '') +
+      // Nor of a supply resonance near a harmonic order in a state the controller can reach.
+      (status.startsWith('meets') ? resonanceSummaryClause(verification) : ''),
     reasons,
     target,
     sizing,

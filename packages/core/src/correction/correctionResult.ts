@@ -310,6 +310,36 @@ export interface CtBasis {
   readonly currentWords: string;
 }
 
+/** One state the controller can put the bank in, and its supply resonance (stepStateResonance.ts). */
+export interface StepStateOrders {
+  /** Controller outputs switched in and out (the fixed part, if any, is always in). */
+  readonly outputsIn: readonly number[];
+  readonly outputsOut: readonly number[];
+  /** Other combinations of outputs in with the same capacitance on every branch (equal steps): the same network, the same orders. */
+  readonly alike: readonly (readonly number[])[];
+  /** The equipment's capacitors in this state, kvar at nominal voltage. */
+  readonly capacitorKvarAtNominalV: number;
+  /** Its resonance orders with the supply path, lowest first (those within 0.5 % of the one before left out). */
+  readonly orders: readonly number[];
+  readonly lowestOrder: number | null;
+  /** The watched orders within the resonance band of any of `orders`; empty when none. */
+  readonly nearOrders: readonly number[];
+  /** Those of `orders` that lie within the band of a watched order. */
+  readonly resonancesNear: readonly number[];
+}
+
+/** The supply resonance in every state of the switched steps (stepStateResonance.ts). */
+export interface StepStateResonance {
+  /** Distinct states: every step in first, then by capacitance, most first. */
+  readonly states: readonly StepStateOrders[];
+  /** How many combinations of the switched outputs the controller can reach (without a fixed part, every step out is the board as it was and not counted). */
+  readonly combinations: number;
+  /** What stays in whatever the controller does. */
+  readonly fixedPart: { readonly reactors: boolean; readonly capacitors: boolean };
+  /** How many of `states` have an order near a watched one. */
+  readonly nearStates: number;
+}
+
 /** The largest line current where the CT reads in the worst state of the switched steps (see CtBasis). */
 export interface StepStateCurrent {
   /** The line it flows in, and that line as the file names it. */
@@ -579,6 +609,18 @@ export interface CorrectionVerification {
   readonly resonanceNearOrders: readonly number[];
   /** What `resonanceOrder` is worked from, kvar at the solved voltages with the equipment in. */
   readonly resonanceCapacitance: ResonanceCapacitance;
+  /**
+   * The resonance orders in every state the controller can put the bank in (the fixed part with each combination
+   * of switched steps, stepStateResonance.ts); null where the build has no switched step or no estimate (an ideal
+   * source, a detuned bank whose harmonic check decides).
+   */
+  readonly resonanceStepStates: StepStateResonance | null;
+  /**
+   * True where the resonance estimate lies within the band of a watched order with every step in or in any
+   * state the controller can reach: what the resonance warnings say, the verdict's headline and the
+   * comparison's ranking weigh. False where the harmonic check's scan of every step combination decides.
+   */
+  readonly resonanceNearHarmonic: boolean;
   readonly lightLoad: LightLoadCheck | null;
   /**
    * What the equipment overloads that was not overloaded without it (a line, the neutral, the supply

@@ -6,7 +6,7 @@ import type { PhaseLabel } from '../board/conventions/phaseNames.js';
 import type { PhaseId } from '../board/boardModel.js';
 import type { PowerFactorSense } from '../analysis/boardResult.js';
 import type { Arrangement, TargetDefinition } from './correctionSpec.js';
-import type { BuildVerdict, CtBasis, SmallBranch, StepStateCurrent, SparedBranch, TargetName } from './correctionResult.js';
+import type { BuildVerdict, CtBasis, SmallBranch, StepStateCurrent, StepStateOrders, StepStateResonance, SparedBranch, TargetName } from './correctionResult.js';
 import { argumentIssueError, checkListArgument, checkNumberArgument, checkObjectArgument, checkTextArgument, checkWordArgument } from '../_internal/argumentChecks.js';
 import { starWordOf, type StarWord } from '../board/conventions/regionWords.js';
 import { REGIONS, type Region } from '../board/conventions/region.js';
@@ -149,6 +149,49 @@ export const limitWords = (target: { readonly leading?: string | undefined; read
 const STEP_STATES_WORDS =
   '. The estimate is for every step in: with fewer steps in the orders rise and can fall near other harmonic orders (the harmonic check, run where the board has a harmonics section, scans every step combination)';
 
+/**
+ * What the every-step-in warning says of the other states: unknown (the steps were not given), none (no switched
+ * step: the one state), or how many other states the controller can reach and how many of them lie near too.
+ */
+export type OtherStepStates = 'unknown' | null | { readonly others: number; readonly othersNear: number };
+
+const otherStatesWords = (states: OtherStepStates): string =>
+  states === 'unknown'
+    ? STEP_STATES_WORDS
+    : states === null || states.others === 0
+      ? ''
+      : states.othersNear > 0
+        ? '. That is with every step in; states with fewer steps in lie near harmonic orders too (next warning)'
+        : `. That is with every step in; none of the ${states.others} other step state${states.others === 1 ? '' : 's'} the controller can reach lies within 10 % of a watched order`;
+
+/** A combination of outputs in, in words: "outputs 1 and 2", "output 3". */
+const outputsWords = (outputs: readonly number[]): string =>
+  outputs.length === 1 ? `output ${outputs[0]}` : `outputs ${outputs.slice(0, -1).join(', ')} and ${outputs.at(-1)}`;
+
+/** A state the controller can reach, by what is in: "with outputs 1 and 2 in", "with only the fixed part in". */
+export function stepStateInWords(st: Pick<StepStateOrders, 'outputsIn'>, fixedPart: StepStateResonance['fixedPart']): string {
+  const kept = fixedPart.reactors && fixedPart.capacitors ? 'the reactors and the fixed capacitors' : fixedPart.reactors ? 'the reactors' : fixedPart.capacitors ? 'the fixed part' : null;
+  if (!st.outputsIn.length) return `with only ${kept ?? 'the fixed part'} in`;
+  return `with ${kept ? `${kept} and ` : ''}${outputsWords(st.outputsIn)} in`;
+}
+
+/**
+ * The verdict's "but" where the supply resonance lies near a watched order with every step in or in another state
+ * the controller can reach (CorrectionVerification.resonanceNearHarmonic); empty where it does not.
+ */
+export function resonanceSummaryClause(v: { readonly resonanceNearHarmonic: boolean; readonly resonanceNearOrders: readonly number[]; readonly resonanceStepStates: StepStateResonance | null }): string {
+  if (!v.resonanceNearHarmonic) return '';
+  const partial = v.resonanceStepStates?.states.slice(1).filter((st) => st.nearOrders.length > 0) ?? [];
+  const orders = [...new Set([...v.resonanceNearOrders, ...partial.flatMap((st) => st.nearOrders)])].sort((a, b) => a - b);
+  const where = [...(v.resonanceNearOrders.length ? ['with every step in'] : []), ...(partial.length ? [`in ${partial.length} state${partial.length === 1 ? '' : 's'} with fewer steps in`] : [])];
+  const named = orders.map(ordinal);
+  const list = named.length === 1 ? `the ${named[0]} harmonic` : `the ${named.slice(0, -1).join(', ')} and ${named.at(-1)} harmonics`;
+  return `; but its supply resonance lies within 10 % of ${list} ${where.join(' and ')} (see the warnings)`;
+}
+
+/** At most this many states are named in a warning; the rest are counted (the step-state table lists them). */
+const NAMED_STATES = 4;
+
 export const warningText = {
   reactorsResized: (reactors: ResizingWords['reactors']) =>
     `the reactors were sized again beside the capacitors as built from units (${reactorChanges(reactors)} at nominal voltage): the build verified here has the re-sized reactors`,
@@ -168,10 +211,32 @@ export const warningText = {
     `at light load the fixed part makes line${phases.length > 1 ? 's' : ''} ${phases.join(', ')} lead (checked at the high end of the capacitance tolerance)`,
   voltageRise: (what: string, percent: number, limit: number) => `${what} raises the board voltage by about ${percent.toFixed(2)} %, above the ${f1(limit)} % flag level`,
   /** @param capacitance what resonates: the bank, the leading loads already on the board, or both */
-  lowResonance: (orders: readonly number[], capacitance: 'bank' | 'board' | 'both' = 'bank', near: readonly number[] = []) =>
+  lowResonance: (orders: readonly number[], capacitance: 'bank' | 'board' | 'both' = 'bank', near: readonly number[] = [], states: OtherStepStates = 'unknown') =>
     `${capacitance === 'bank' ? 'the bank' : capacitance === 'board' ? "the board's own leading loads (capacitance already in service)" : "the bank with the board's own leading loads"} and the supply inductance resonate near harmonic order${orders.length > 1 ? 's' : ''} ${orders.map((h) => h.toFixed(1)).join(' and ')}${near.length ? ` (within 10 % of the ${near.map(ordinal).join(' and the ')})` : ''}, estimated from the supply path's reactances and the capacitances: with harmonic-producing loads on the board this needs a harmonic study and probably a detuned bank${
-      capacitance === 'board' ? '' : STEP_STATES_WORDS
+      capacitance === 'board' ? '' : otherStatesWords(states)
     }`,
+  /**
+   * The states with fewer steps in whose resonance lies near a watched order: each named by what is in (and the
+   * combinations alike in capacitance), with its order; what to do about it, deferring to a study and licensed practice.
+   * @param allInNear true where the every-step-in state is near too (its own warning says so)
+   * @param scanned where the harmonic check of the same study scanned every step combination of the plain bank: whether it passed (the scan decides)
+   */
+  stepStateResonance: (
+    states: readonly Pick<StepStateOrders, 'outputsIn' | 'alike' | 'capacitorKvarAtNominalV' | 'resonancesNear' | 'nearOrders'>[],
+    fixedPart: StepStateResonance['fixedPart'],
+    allInNear: boolean,
+    scanned: { readonly passes: boolean } | null = null,
+  ) => {
+    checkListArgument(states, 'states', 'the step states near a watched order (StepStateResonance.states)', (x) => typeof x === 'object' && x !== null && Array.isArray((x as StepStateOrders).outputsIn));
+    const named = states.slice(0, NAMED_STATES).map((st) => {
+      const alike = st.alike.length ? ` (or ${st.alike.map((o) => o.join('+')).join(', ')}: the same capacitance)` : '';
+      return `${stepStateInWords(st, fixedPart)}${alike}, ${st.capacitorKvarAtNominalV.toFixed(1)} kvar, near ${st.resonancesNear.map((h) => h.toFixed(1)).join(' and ')} (the ${st.nearOrders.map(ordinal).join(' and the ')})`;
+    });
+    const more = states.length > NAMED_STATES ? `; and ${states.length - NAMED_STATES} more state${states.length - NAMED_STATES === 1 ? '' : 's'} (see the step-state table)` : '';
+    if (scanned)
+      return `the estimate from the supply path's reactances also puts the resonance near a harmonic order with fewer steps in: ${named.join('; ')}${more}; the harmonic check of this study scanned every step combination and ${scanned.passes ? 'passes the plain bank (the spectra are typical or entered ones: measure the real spectrum before installing)' : 'fails the plain bank (see the harmonic check)'}`;
+    return `${allInNear ? 'also ' : ''}with fewer steps in, the bank and the supply inductance resonate within 10 % of a harmonic order: ${named.join('; ')}${more}. The controller reaches these states as it follows the load: with harmonic-producing loads on the board this needs a harmonic study, and then detuning reactors on the steps, or a switching programme that never leaves the bank in ${states.length === 1 ? 'that combination' : 'those combinations'}, decided with that study by a licensed professional to the local codes`;
+  },
   /** The same resonance where the harmonic check scanned the plain bank in the same study: the estimate defers to the scan. */
   lowResonanceScanned: (orders: readonly number[], near: readonly number[], lowestPeak: number | null, passes: boolean) =>
     `the estimate from the supply path's reactances puts the resonance of the capacitance with the supply near harmonic order${orders.length > 1 ? 's' : ''} ${orders.map((h) => h.toFixed(1)).join(' and ')}${near.length ? ` (within 10 % of the ${near.map(ordinal).join(' and the ')})` : ''}; the harmonic check of this study ${lowestPeak === null ? 'found no resonance peak in its range' : `scanned its lowest peak at h = ${lowestPeak.toFixed(2)}`} and ${passes ? 'passes the plain bank: no order in the spectra entered lies near a peak. The spectra are typical or entered ones: measure the real spectrum of the board before installing, and again when harmonic-producing loads are added' : 'fails the plain bank (see the harmonic check)'}`,
@@ -534,13 +599,13 @@ const STATUS_SHORT: Record<string, string> = {
 };
 
 export const comparisonWording = {
-  rule: 'first an arrangement that meets the target across the capacitance tolerance, then at nominal capacitance, then one that meets it but overloads a conductor or the supply; among those the least cost (nameplate kvar + 2 kvar-equivalent per unit, a reactor counted at twice its kvar); costs within 5 % are equal and the lower losses decide',
+  rule: 'first an arrangement that meets the target across the capacitance tolerance, then at nominal capacitance, then one that meets it but whose supply resonance lies within 10 % of a harmonic order in a state its controller can reach, then one that meets it but overloads a conductor or the supply; among those the least cost (nameplate kvar + 2 kvar-equivalent per unit, a reactor counted at twice its kvar); costs within 5 % are equal and the lower losses decide',
   noneStudied: 'no arrangement could be studied with these settings',
   why: (
     name: string,
     status: string,
     f: { cost: number; lossesKW: number },
-    others: readonly { name: string; status: string; cost: number; lossesKW: number; overloads: boolean }[],
+    others: readonly { name: string; status: string; cost: number; lossesKW: number; overloads: boolean; resonates?: boolean }[],
     tieOnCost: boolean,
   ) => {
     // Nothing bought (no unit, no reactor) has no cost to quote: say so in words instead of "cost 0.0".
@@ -559,7 +624,9 @@ export const comparisonWording = {
     const rest = others.map((o) =>
       o.overloads
         ? `${o.name} ${STATUS_SHORT[o.status]} but overloads what feeds it${nothingAdded(o.cost) ? '' : ` (cost ${o.cost.toFixed(1)})`}`
-        : o.status !== status
+        : o.resonates
+          ? `${o.name} ${STATUS_SHORT[o.status]} but resonates with the supply near a harmonic order in a step state (cost ${o.cost.toFixed(1)})`
+          : o.status !== status
           ? `${o.name} ${STATUS_SHORT[o.status]}`
           : nothingAdded(o.cost)
             ? `${o.name} also adds nothing`
@@ -567,6 +634,9 @@ export const comparisonWording = {
     );
     return rest.length ? `${head}; ${rest.join('; ')}` : head;
   },
+  /** Said where the recommended build resonates near a harmonic order in a step state: none meets the target clear of one. */
+  resonates: (name: string) =>
+    `note: no arrangement meets the target with its supply resonance clear of the watched harmonic orders in every step state; the recommended ${name} needs the harmonic study its warnings name`,
   /** What a compared arrangement overloads, said beside the recommendation. */
   overloads: (name: string, recommended: boolean, messages: readonly string[]) =>
     `${recommended ? 'note: no arrangement meets the target without an overload; with the recommended' : 'with the'} ${name} in, ${messages.join('; ')}`,
@@ -628,4 +698,67 @@ export function ctCurrentWords(b: Pick<CtBasis, 'sizedOn' | 'currentA' | 'larges
   return b.sizedOn === 'before'
     ? `${f1(b.currentA)} A, the largest line current there before correction (${f1(b.largestLineCurrentA.after)} A after${sized})`
     : `${f1(b.currentA)} A, the largest line current there after correction${sized} (${f1(b.largestLineCurrentA.before)} A before)`;
+}
+
+/** At most this many rows in a step-state table: the states near a watched order first, then the others as room allows. */
+const TABLE_STATES = 12;
+
+/** The supply resonance of every step state as a small table (`trivar correct`'s checks, the report's harmonics section). */
+export interface StepStateTable {
+  readonly header: readonly string[];
+  readonly rows: readonly (readonly string[])[];
+  /** What the rows are of, and the states left out. */
+  readonly note: string;
+}
+
+/** A combination of outputs in, for a table cell: "1+2", "1+2 or 1+3", "1+2 (+4 alike)", "fixed part only". */
+function stepsInCell(st: StepStateOrders, every: boolean): string {
+  if (!st.outputsIn.length) return 'fixed part only';
+  const own = st.outputsIn.join('+');
+  if (every) return `${own} (every step)`;
+  return st.alike.length === 0 ? own : st.alike.length <= 2 ? [own, ...st.alike.map((o) => o.join('+'))].join(' or ') : `${own} (+${st.alike.length} alike)`;
+}
+
+/** The near resonances of a state, each with the watched order it lies near: "11th", "9th at h 9.31" where it is not the lowest. */
+function nearCell(st: StepStateOrders): string {
+  if (!st.nearOrders.length) return '-';
+  return st.resonancesNear
+    .map((h) => {
+      const w = st.nearOrders.reduce((a, b) => (Math.abs(b - h) < Math.abs(a - h) ? b : a));
+      return h === st.lowestOrder ? ordinal(w) : `${ordinal(w)} at h ${h.toFixed(2)}`;
+    })
+    .join(', ');
+}
+
+/**
+ * The step states where any lies near a watched order: steps in, their kvar at nominal voltage, the lowest order
+ * and the watched orders near. Every state near is a row; the others fill up to TABLE_STATES, most capacitance first.
+ */
+export function stepStateTable(r: StepStateResonance): StepStateTable {
+  checkObjectArgument(r, 'r', "a verification's step-state resonance (resonanceStepStates)", ['states', 'combinations', 'fixedPart', 'nearStates']);
+  const near = r.states.filter((st, k) => k === 0 || st.nearOrders.length > 0);
+  const room = Math.max(0, TABLE_STATES - near.length);
+  const others = r.states.filter((st, k) => k > 0 && st.nearOrders.length === 0);
+  const shown = new Set([...near, ...others.slice(0, room)]);
+  const rows = r.states.filter((st) => shown.has(st)).map((st) => [stepsInCell(st, st === r.states[0]), st.capacitorKvarAtNominalV.toFixed(1), st.lowestOrder === null ? '-' : st.lowestOrder.toFixed(2), nearCell(st)]);
+  const left = others.slice(room);
+  const kept = r.fixedPart.reactors || r.fixedPart.capacitors ? ' (the fixed part always in)' : '';
+  const leftWords = left.length
+    ? `; ${left.length} more state${left.length === 1 ? '' : 's'}, none near, lowest order ${Math.min(...left.map((s) => s.lowestOrder ?? Infinity)).toFixed(2)} to ${Math.max(...left.map((s) => s.lowestOrder ?? 0)).toFixed(2)}`
+    : '';
+  return {
+    header: ['steps in', 'kvar@nom V', 'lowest h', 'near'],
+    rows,
+    note: `controller outputs in${kept}; kvar of the bank's capacitors in, at nominal voltage; near: the harmonic orders within 10 % of an order of that state${leftWords}`,
+  };
+}
+
+/** Every step state in one line, where none lies near a watched order: the range of their lowest orders. */
+export function stepStatesClearWords(r: StepStateResonance): string {
+  checkObjectArgument(r, 'r', "a verification's step-state resonance (resonanceStepStates)", ['states', 'combinations', 'fixedPart', 'nearStates']);
+  const withOrder = r.states.filter((s) => s.lowestOrder !== null);
+  const top = withOrder.reduce((a, b) => (b.lowestOrder! > a.lowestOrder! ? b : a), withOrder[0]!);
+  const distinct = r.states.length === r.combinations ? '' : `, ${r.states.length} distinct`;
+  const topWords = top === r.states[0] ? '' : ` to ${top.lowestOrder!.toFixed(2)} (${stepsInCell(top, false) === 'fixed part only' ? 'fixed part only' : `outputs ${stepsInCell(top, false)} in`})`;
+  return `every step state the controller can reach (${r.combinations} combination${r.combinations === 1 ? '' : 's'} of the switched outputs${distinct}): lowest order ${r.states[0]!.lowestOrder?.toFixed(2) ?? '-'} with every step in${topWords}; none within 10 % of a watched harmonic order`;
 }
