@@ -384,8 +384,11 @@ function checksBlock(v: CorrectionVerification, detuned = false): string {
     `steady voltage rise: ${voltageRiseEstimateWords(vr, v)}; solved ${fixed(vr.solvedPercent, 2)} %; flag above ${vr.limitPercent} %${vr.flagged ? '  ← FLAGGED' : ''}`,
   );
   out.push(resonanceWords(v, detuned));
+  // The step states under the resonance line: a table is set as it is, not wrapped.
   const table = stepStatesBlock(v);
   if (table.line) out.push(table.line);
+  const head = indentLines(out) + (table.table ? `\n${table.table}` : '');
+  out.length = 0;
   if (v.lightLoad) {
     const ll = v.lightLoad;
     const lines = ll.lines.map((l) => `${label(l.phase)} ${pfFigure(l.pf)} ${senseWord(l.sense)}`.trim()).join(', ');
@@ -393,7 +396,7 @@ function checksBlock(v: CorrectionVerification, detuned = false): string {
       `light load (${fixed(ll.fraction * 100, 0)} % of the loads, fixed part ${fixed(ll.fixedKvar, 2)} kvar only): ${lines || 'no lines'}${ll.ok ? ' — no line leads' : ` — LEADS on ${ll.leadingLines.map(label).join(', ')}`}; voltage rise ${fixed(ll.voltageRise.solvedPercent, 2)} %`,
     );
   }
-  return indentLines(out) + (table.table ? `\n${table.table}` : '');
+  return out.length ? `${head}\n${indentLines(out)}` : head;
 }
 
 /**

@@ -57,8 +57,18 @@ export function stepStateResonance(input: StepStateResonanceInputs): StepStateRe
   const hasFixed = input.steps.some((s) => s.output === null) || input.equipment.some((g) => g.branches.some((b) => b.susceptanceS < 0));
   const outputs = switched.map((s) => s.output!);
   const n = switched.length;
-  // Most steps in first, so the every-step-in state leads and each network is named by its fullest combination.
-  const masks = Array.from({ length: 1 << n }, (_, m) => (1 << n) - 1 - m).filter((m) => hasFixed || m !== 0);
+  // Most steps in first, so the every-step-in state leads; among as many, the lowest outputs first, so a network
+  // of equal steps is named by its first combination ("1+2", alike "1+3" and "2+3").
+  const bits = (m: number) => switched.map((_, k) => (m & (1 << k)) !== 0);
+  const lowFirst = (a: number, b: number) => {
+    const [x, y] = [bits(a), bits(b)];
+    const k = x.findIndex((v, i) => v !== y[i]);
+    return k < 0 ? 0 : x[k] ? -1 : 1;
+  };
+  const count = (m: number) => bits(m).filter(Boolean).length;
+  const masks = Array.from({ length: 1 << n }, (_, m) => m)
+    .filter((m) => hasFixed || m !== 0)
+    .sort((a, b) => count(b) - count(a) || lowFirst(a, b));
   const bySusceptance = new Map<string, { stepsIn: boolean[]; alike: number[][] }>();
   for (const mask of masks) {
     const stepsIn = switched.map((_, k) => (mask & (1 << k)) !== 0);
