@@ -23,7 +23,7 @@ import { defaultPractice, selectBankUnitsPreferring, type BuildPreference } from
 import { verifyCorrection, type VerifyCorrectionOptions } from './verifyCorrection.js';
 import { scaleBoardLoads } from './scaleBoardLoads.js';
 import type { BankSelection, BankSizing, BuildVerdict, CompensatorSizing, CorrectionReport, CorrectionStatus, CorrectionVerification, CorrectionWarning, FewerBranchesBuild, LineComparison, RoundingBesideReactors, SizedEquipment } from './correctionResult.js';
-import { withCtReading, type CtReading } from './controllerSettings.js';
+import { withCtReading, type CtEndReading, type CtReading } from './controllerSettings.js';
 import { arrangementNames, resonanceSummaryClause, correctionCautions, exemptLeadingLines, exemptLeadingWords, infeasibleReason, lostNeutralCaution, lostNeutralUnequal, MODEL_CAUTION, meteringWarning, reportSummary, warningText } from './correctionWording.js';
 import { definedOnly } from './_internal/optionSchemas.js';
 import { assertViableBoard } from '../analysis/viableOperatingPoint.js';
@@ -352,25 +352,31 @@ export function correctBoard(board: Board, spec: unknown): CorrectionReport {
   // The controller's CT goes where it reads (where the target is measured, else the equipment's board) and
   // carries the largest current there: before, with every step in, or in the worst state of the switched
   // steps (a fixed reactor with the capacitors out, trim steps apart): chosen and checked on the build as verified.
+  // Capacitors are made to a tolerance: the CT is sized at the end that draws more where it reads, each end solved
+  // (with load current there, more capacitance can mean less current: the high end is not always the worse).
   const meter = meteringPlace(board, target.measuredAt);
-  const worst =
-    asBuilt && asBuilt.controller
-      ? worstStepState({
-          steps: asBuilt.steps,
-          equipment: verification.equipment,
-          equipped: verification.after,
-          atCt: verification.metering?.after ?? verification.after,
-          frequencyHz: board.frequencyHz,
-          solveAtCt: (equipment) => {
-            const equipped = addCorrectionEquipment(board, equipment);
-            return meter ? solveMeter(equipped, meter) : analyseSolution(solveNetwork(equipped));
-          },
-        })
-      : null;
-  const stepState = worst && { ...worst, lineLabel: label(worst.phase) };
+  const endReading = (capacitanceFactor: number): CtEndReading => {
+    const solveAt = (equipment: readonly EquipmentGroup[]) => {
+      const equipped = addCorrectionEquipment(board, equipment, { capacitanceFactor });
+      const atBoard = analyseSolution(solveNetwork(equipped));
+      return { atBoard, atCt: meter ? solveMeter(equipped, meter) : atBoard };
+    };
+    const all = solveAt(verification.equipment);
+    const worst = worstStepState({
+      steps: asBuilt!.steps,
+      equipment: verification.equipment,
+      equipped: all.atBoard,
+      atCt: all.atCt,
+      frequencyHz: board.frequencyHz,
+      capacitanceFactor,
+      solveAtCt: (equipment) => solveAt(equipment).atCt,
+    });
+    return { capacitanceFactor, afterA: Math.max(0, ...all.atCt.phases.map((p) => p.current.magnitude)), stepState: worst && { ...worst, lineLabel: label(worst.phase) } };
+  };
+  const toleranceEnds = asBuilt && asBuilt.controller ? { low: endReading(verification.tolerance.low.capacitanceFactor), high: endReading(verification.tolerance.high.capacitanceFactor) } : null;
   const ctReading: CtReading = verification.metering
-    ? { place: 'metering-point', point: verification.metering.point, lines: verification.metering.lines, afterFrom: 'as-built', stepState }
-    : { place: 'board', point: board.name, lines: verification.lines, afterFrom: 'as-built', stepState };
+    ? { place: 'metering-point', point: verification.metering.point, lines: verification.metering.lines, afterFrom: 'as-built', toleranceEnds }
+    : { place: 'board', point: board.name, lines: verification.lines, afterFrom: 'as-built', toleranceEnds };
   const built = asBuilt && withCtReading(asBuilt, ctReading, parsed.controller ?? {});
   const resizedWords = (r: NonNullable<typeof refit>['reactors']) => r.map((x) => ({ ...x, branch: label(x.branch) }));
   const resizing = refit ? { reactors: refit.reactors, objectiveSized: refit.objectiveSized, objectiveResized: refit.objectiveResized, converged: refit.converged, used: useRefit, solves: refit.solves } : null;

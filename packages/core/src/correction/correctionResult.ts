@@ -300,6 +300,14 @@ export interface CtBasis {
    * none to add (no switched step, or a single one and no fixed part), or the caller gave the figure.
    */
   readonly stepState: StepStateCurrent | null;
+  /**
+   * The capacitance tolerance end the CT's after and step-state figures are read at: the one that gives the larger
+   * current there. |I| of a line is convex in the capacitance, so an end bounds every capacitance between; with load
+   * current at the CT the high end is not always the worse (capacitors taking a lagging line past unity draw more
+   * the more they are). Null where the caller gave the figure or the reading was at nominal capacitance only
+   * (a selection without a board). `stepState` is the worst state at that end.
+   */
+  readonly capacitance: CtCapacitanceEnd | null;
   /** Which figure the CT is chosen on and checked against: the largest of them, or the one given. */
   readonly sizedOn: 'before' | 'after' | 'step-state' | 'given';
   /** That figure, A. */
@@ -338,6 +346,18 @@ export interface StepStateResonance {
   readonly fixedPart: { readonly reactors: boolean; readonly capacitors: boolean };
   /** How many of `states` have an order near a watched one. */
   readonly nearStates: number;
+}
+
+/** The tolerance end a CT is sized at, with the figures at both ends (see CtBasis.capacitance). */
+export interface CtCapacitanceEnd {
+  /** The end used: the one with the larger current where the CT reads. */
+  readonly end: 'low' | 'high';
+  /** Its capacitance as a share of nominal (0.95, 1.10). */
+  readonly capacitanceFactor: number;
+  /** The largest line current there with every step in, at each end, A. */
+  readonly afterA: { readonly low: number; readonly high: number };
+  /** The worst step state's largest line current at each end, A; null where there is no state to add. */
+  readonly stepStateA: { readonly low: number; readonly high: number } | null;
 }
 
 /** The largest line current where the CT reads in the worst state of the switched steps (see CtBasis). */

@@ -243,7 +243,7 @@ export const warningText = {
   partialBalance: (negative: number, zero: number, reactors: readonly PhaseLabel[]) =>
     `the capacitor-only compensator meets the power-factor target but balances only partly (|I2|/|I1| = ${negative.toFixed(1)} %, |I0|/|I1| = ${zero.toFixed(1)} %)${reactors.length ? `; full balance needs reactors on ${reactors.join(', ')}` : ''}`,
   /** @param suggestedA the primary trivar would choose for that current (1.25 × it, next standard rating) */
-  ctBelowLineCurrent: (primaryA: number, basis: Pick<CtBasis, 'currentA' | 'sizedOn' | 'placeWords' | 'stepState'>, suggestedA: number) => {
+  ctBelowLineCurrent: (primaryA: number, basis: Pick<CtBasis, 'currentA' | 'sizedOn' | 'placeWords' | 'stepState'> & { readonly capacitance?: CtBasis['capacitance'] }, suggestedA: number) => {
     // One decimal where it shows the figure above the primary; two where one would print them equal.
     const lineA = Number(f1(basis.currentA)) > primaryA ? f1(basis.currentA) : basis.currentA.toFixed(2);
     const when =
@@ -254,7 +254,8 @@ export const warningText = {
           : basis.sizedOn === 'step-state' && basis.stepState
             ? ` on line ${basis.stepState.lineLabel} ${stepStateWords(basis.stepState)}`
             : ' after correction';
-    return `the CT primary (${primaryA} A) is below the largest line current (${lineA} A)${when} at ${basis.placeWords}: the CT runs past its rating and saturates, and the controller misreads the reactive current; raise controller.ctPrimaryA to at least ${Math.ceil(basis.currentA)} A (${suggestedA} A is the next standard rating at or above 1.25 × it)`;
+    const end = basis.capacitance && (basis.sizedOn === 'after' || basis.sizedOn === 'step-state') ? `, with the capacitors at the ${capacitanceEndWords(basis.capacitance.capacitanceFactor)} end of their tolerance` : '';
+    return `the CT primary (${primaryA} A) is below the largest line current (${lineA} A)${when} at ${basis.placeWords}${end}: the CT runs past its rating and saturates, and the controller misreads the reactive current; raise controller.ctPrimaryA to at least ${Math.ceil(basis.currentA)} A (${suggestedA} A is the next standard rating at or above 1.25 × it)`;
   },
   manySmallUnits: (w: {
     units: number;
@@ -685,20 +686,30 @@ export function stepStateWords(st: Pick<StepStateCurrent, 'outputsIn' | 'outputs
 }
 
 /** The current a controller's CT is chosen on or checked against, in words (CtBasis.currentWords). */
-export function ctCurrentWords(b: Pick<CtBasis, 'sizedOn' | 'currentA' | 'largestLineCurrentA' | 'afterFrom' | 'stepState'>): string {
+export function ctCurrentWords(b: Pick<CtBasis, 'sizedOn' | 'currentA' | 'largestLineCurrentA' | 'afterFrom' | 'stepState' | 'capacitance'>): string {
   if (b.sizedOn === 'given' || b.largestLineCurrentA === null) return `${f1(b.currentA)} A, the line current given (lineCurrentA)`;
   const sized = b.afterFrom === 'as-sized' ? ', as sized' : '';
+  const c = b.capacitance ?? null;
+  // The tolerance end the figure is read at, where it was: the one that draws more where the CT reads.
+  const atEnd = c === null ? '' : `, with the capacitors at the ${capacitanceEndWords(c.capacitanceFactor)} end of their tolerance, the end that draws more there`;
+  const afterAtEnd = c === null ? b.largestLineCurrentA.after : c.afterA[c.end];
   // A state of the steps between the ends draws more than either: it is the figure, and the state is named.
-  if (b.sizedOn === 'step-state' && b.stepState)
-    return `${f1(b.currentA)} A on line ${b.stepState.lineLabel} ${stepStateWords(b.stepState)}, the largest line current there in any state of the steps${
+  if (b.sizedOn === 'step-state' && b.stepState) {
+    // A state with no capacitor in (reactors alone) draws the same at either end: no end to name for it.
+    const capacitorsIn = b.stepState.outputsIn.length > 0 || b.stepState.fixedPart.capacitors;
+    return `${f1(b.currentA)} A on line ${b.stepState.lineLabel} ${stepStateWords(b.stepState)}${capacitorsIn ? atEnd : ''}, the largest line current there in any state of the steps${
       b.stepState.solved ? '' : ' (by superposition of the steps\' currents: that state did not solve)'
-    } (${f1(b.largestLineCurrentA.before)} A before correction, ${f1(b.largestLineCurrentA.after)} A with every step in${sized})`;
+    } (${f1(b.largestLineCurrentA.before)} A before correction, ${f1(afterAtEnd)} A with every step in${c === null ? '' : ` at ${capacitanceEndWords(c.capacitanceFactor)} capacitance`}${sized})`;
+  }
   // Two figures that print alike are one: "after correction (20.1 A before)" would read as a contradiction.
-  if (f1(b.largestLineCurrentA.before) === f1(b.largestLineCurrentA.after)) return `${f1(b.currentA)} A, the largest line current there before and after correction${sized}`;
-  return b.sizedOn === 'before'
-    ? `${f1(b.currentA)} A, the largest line current there before correction (${f1(b.largestLineCurrentA.after)} A after${sized})`
-    : `${f1(b.currentA)} A, the largest line current there after correction${sized} (${f1(b.largestLineCurrentA.before)} A before)`;
+  if (f1(b.largestLineCurrentA.before) === f1(afterAtEnd) && c === null) return `${f1(b.currentA)} A, the largest line current there before and after correction${sized}`;
+  if (b.sizedOn === 'before') return `${f1(b.currentA)} A, the largest line current there before correction (${f1(afterAtEnd)} A after${c === null ? '' : `, capacitance at ${capacitanceEndWords(c.capacitanceFactor)}`}${sized})`;
+  const nominal = c === null ? '' : `${f1(b.largestLineCurrentA.after)} A at nominal capacitance; `;
+  return `${f1(b.currentA)} A, the largest line current there after correction${sized}${atEnd} (${nominal}${f1(b.largestLineCurrentA.before)} A before)`;
 }
+
+/** A capacitance tolerance end in words: "+10 %", "−5 %". */
+export const capacitanceEndWords = (factor: number): string => `${factor >= 1 ? '+' : '−'}${Number((Math.abs(factor - 1) * 100).toFixed(2))} %`;
 
 /** At most this many rows in a step-state table: the states near a watched order first, then the others as room allows. */
 const TABLE_STATES = 12;
