@@ -12,6 +12,7 @@ import { starWordOf, type StarWord } from '../board/conventions/regionWords.js';
 import { REGIONS, type Region } from '../board/conventions/region.js';
 import { SYSTEMS } from '../board/boardRanges.js';
 import { quoteText } from '../errors.js';
+import { CORRECTION_DEFAULTS } from './correctionDefaults.js';
 import { lineToNeutralCapacitorsCaution } from '../analysis/openNeutralWording.js';
 
 interface TargetWords {
@@ -229,7 +230,11 @@ export const warningText = {
   ) => {
     checkListArgument(states, 'states', 'the step states near a watched order (StepStateResonance.states)', (x) => typeof x === 'object' && x !== null && Array.isArray((x as StepStateOrders).outputsIn));
     const named = states.slice(0, NAMED_STATES).map((st) => {
-      const alike = st.alike.length ? ` (or ${st.alike.map((o) => o.join('+')).join(', ')}: the same capacitance)` : '';
+      const alike = !st.alike.length
+        ? ''
+        : st.alike.length <= 3
+          ? ` (or ${st.alike.map((o) => o.join('+')).join(', ')}: the same capacitance)`
+          : ` (or any of ${st.alike.length} other combinations with the same capacitance)`;
       return `${stepStateInWords(st, fixedPart)}${alike}, ${st.capacitorKvarAtNominalV.toFixed(1)} kvar, near ${st.resonancesNear.map((h) => h.toFixed(1)).join(' and ')} (the ${st.nearOrders.map(ordinal).join(' and the ')})`;
     });
     const more = states.length > NAMED_STATES ? `; and ${states.length - NAMED_STATES} more state${states.length - NAMED_STATES === 1 ? '' : 's'} (see the step-state table)` : '';
@@ -735,10 +740,10 @@ function nearCell(st: StepStateOrders): string {
   if (!st.nearOrders.length) return '-';
   return st.resonancesNear
     .map((h) => {
-      const w = st.nearOrders.reduce((a, b) => (Math.abs(b - h) < Math.abs(a - h) ? b : a));
-      return h === st.lowestOrder ? ordinal(w) : `${ordinal(w)} at h ${h.toFixed(2)}`;
+      const near = st.nearOrders.filter((w) => Math.abs(h - w) <= CORRECTION_DEFAULTS.resonanceNearFraction * w).map(ordinal).join(', ');
+      return h === st.lowestOrder ? near : `${near} at h ${h.toFixed(2)}`;
     })
-    .join(', ');
+    .join('; ');
 }
 
 /**
@@ -770,6 +775,6 @@ export function stepStatesClearWords(r: StepStateResonance): string {
   const withOrder = r.states.filter((s) => s.lowestOrder !== null);
   const top = withOrder.reduce((a, b) => (b.lowestOrder! > a.lowestOrder! ? b : a), withOrder[0]!);
   const distinct = r.states.length === r.combinations ? '' : `, ${r.states.length} distinct`;
-  const topWords = top === r.states[0] ? '' : ` to ${top.lowestOrder!.toFixed(2)} (${stepsInCell(top, false) === 'fixed part only' ? 'fixed part only' : `outputs ${stepsInCell(top, false)} in`})`;
+  const topWords = top === r.states[0] ? '' : ` to ${top.lowestOrder!.toFixed(2)} (${stepStateInWords(top, r.fixedPart)})`;
   return `every step state the controller can reach (${r.combinations} combination${r.combinations === 1 ? '' : 's'} of the switched outputs${distinct}): lowest order ${r.states[0]!.lowestOrder?.toFixed(2) ?? '-'} with every step in${topWords}; none within 10 % of a watched harmonic order`;
 }
