@@ -202,7 +202,7 @@ describe('the CT at the capacitance tolerance end that draws more where it reads
   });
 
   it('the CT basis takes the −5 % end (53.35 A, not 52.92 A at nominal nor 52.12 A at +10 %), and says so', () => {
-    const lines = [{ currentA: { before: 50, after: hand(0) } }];
+    const lines = [{ currentA: { before: 50, after: hand(0), change: hand(0) - 50 } }];
     const basis = ctBasisOf({ place: 'board', point: 'Glaze kiln room', lines, afterFrom: 'as-built', toleranceEnds: { low: endReading(0.95), high: endReading(1.1) } });
     expect(basis.sizedOn).toBe('step-state');
     expect(basis.capacitance).toMatchObject({ end: 'low', capacitanceFactor: 0.95 });

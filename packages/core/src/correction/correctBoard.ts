@@ -464,7 +464,7 @@ export function correctBoard(board: Board, spec: unknown): CorrectionReport {
       // Meeting the PF target says nothing of what the equipment overloads: the summary says it beside the verdict.
       (verification.overloadsCaused.length ? `; but with it in, ${verification.overloadsCaused.map((o) => o.message).join('; ')}` : '') +
       // Nor of a supply resonance near a harmonic order in a state the controller can reach.
-      (status.startsWith('meets') ? resonanceSummaryClause(verification) : ''),
+      (status.startsWith('meets') ? resonanceSummaryClause(verification, verification.overloadsCaused.length ? 'and' : 'but') : ''),
     reasons,
     target,
     sizing,

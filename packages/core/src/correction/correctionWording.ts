@@ -180,14 +180,18 @@ export function stepStateInWords(st: Pick<StepStateOrders, 'outputsIn'>, fixedPa
  * The verdict's "but" where the supply resonance lies near a watched order with every step in or in another state
  * the controller can reach (CorrectionVerification.resonanceNearHarmonic); empty where it does not.
  */
-export function resonanceSummaryClause(v: { readonly resonanceNearHarmonic: boolean; readonly resonanceNearOrders: readonly number[]; readonly resonanceStepStates: StepStateResonance | null }): string {
+export function resonanceSummaryClause(
+  v: { readonly resonanceNearHarmonic: boolean; readonly resonanceNearOrders: readonly number[]; readonly resonanceStepStates: StepStateResonance | null },
+  /** 'and' where the summary already has its "but" (an overload). */
+  joined: 'but' | 'and' = 'but',
+): string {
   if (!v.resonanceNearHarmonic) return '';
   const partial = v.resonanceStepStates?.states.slice(1).filter((st) => st.nearOrders.length > 0) ?? [];
   const orders = [...new Set([...v.resonanceNearOrders, ...partial.flatMap((st) => st.nearOrders)])].sort((a, b) => a - b);
   const where = [...(v.resonanceNearOrders.length ? ['with every step in'] : []), ...(partial.length ? [`in ${partial.length} state${partial.length === 1 ? '' : 's'} with fewer steps in`] : [])];
   const named = orders.map(ordinal);
   const list = named.length === 1 ? `the ${named[0]} harmonic` : `the ${named.slice(0, -1).join(', ')} and ${named.at(-1)} harmonics`;
-  return `; but its supply resonance lies within 10 % of ${list} ${where.join(' and ')} (see the warnings)`;
+  return `; ${joined} its supply resonance lies within 10 % of ${list} ${where.join(' and ')} (see the warnings)`;
 }
 
 /** At most this many states are named in a warning; the rest are counted (the step-state table lists them). */
@@ -763,7 +767,7 @@ export function stepStateTable(r: StepStateResonance): StepStateTable {
     ? `; ${left.length} more state${left.length === 1 ? '' : 's'}, none near, lowest order ${Math.min(...left.map((s) => s.lowestOrder ?? Infinity)).toFixed(2)} to ${Math.max(...left.map((s) => s.lowestOrder ?? 0)).toFixed(2)}`
     : '';
   return {
-    header: ['steps in', 'kvar@nom V', 'lowest h', 'near'],
+    header: ['steps in', 'kvar in', 'lowest h', 'near'],
     rows,
     note: `controller outputs in${kept}; kvar of the bank's capacitors in, at nominal voltage; near: the harmonic orders within 10 % of an order of that state${leftWords}`,
   };

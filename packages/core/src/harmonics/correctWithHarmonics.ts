@@ -441,7 +441,7 @@ export function correctWithBankCheck<Check>(
   const failure = `no variant passes the harmonic check (${runs.map((v) => `${v.summary.name}: ${why(v)}`).join(' | ')})`;
   const warnings = shown === plain ? deferredToScan(plain) : shown.report.warnings;
   // The scan of every step combination decides where the plain bank is shown: the estimate's "but" gives way to it.
-  const scannedSummary = shown === plain ? shown.report.summary.replace(resonanceSummaryClause(shown.report.verification), '') : shown.report.summary;
+  const scannedSummary = shown === plain ? shown.report.summary.replace(resonanceSummaryClause(shown.report.verification, shown.report.verification.overloadsCaused.length ? 'and' : 'but'), '') : shown.report.summary;
   return {
     ...shown.report,
     summary: failsCheck ? `${scannedSummary}; but it fails the harmonic check: ${failure}` : scannedSummary,
