@@ -11,7 +11,7 @@ import { InputError, inputIssue } from '../errors.js';
 import { addCorrectionEquipment, kvarFromSusceptance, reactorKvarOf, type EquipmentGroup } from './equipment.js';
 import { worstStepState } from './switchedStepStates.js';
 import { meteringPlace, solveMeter } from './meteringPoint.js';
-import { analyseSolution } from '../analysis/analyseSolution.js';
+import { readTargetFigures } from '../analysis/analyseSolution.js';
 import { solveNetwork } from '../network/solveNetwork.js';
 import { parseCorrectionSpec } from './validateCorrectionSpec.js';
 import { resolveTarget, TARGET_SLACK, widthlessTargetPf, type TargetCheck } from './correctionTarget.js';
@@ -356,10 +356,11 @@ export function correctBoard(board: Board, spec: unknown): CorrectionReport {
   // (with load current there, more capacitance can mean less current: the high end is not always the worse).
   const meter = meteringPlace(board, target.measuredAt);
   const endReading = (capacitanceFactor: number): CtEndReading => {
+    // Only the line figures are read (readTargetFigures), not the whole analysis: a few solves per build.
     const solveAt = (equipment: readonly EquipmentGroup[]) => {
       const equipped = addCorrectionEquipment(board, equipment, { capacitanceFactor });
-      const atBoard = analyseSolution(solveNetwork(equipped));
-      return { atBoard, atCt: meter ? solveMeter(equipped, meter) : atBoard };
+      const atBoard = readTargetFigures(solveNetwork(equipped));
+      return { atBoard, atCt: meter ? solveMeter(equipped, meter, {}, readTargetFigures) : atBoard };
     };
     const all = solveAt(verification.equipment);
     const worst = worstStepState({

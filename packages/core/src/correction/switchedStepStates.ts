@@ -101,9 +101,9 @@ export interface StepStateInputs {
   readonly steps: readonly BankStep[];
   readonly equipment: readonly EquipmentGroup[];
   /** The equipment's board with everything in (design state): its voltages. */
-  readonly equipped: BoardResult;
+  readonly equipped: Pick<BoardResult, 'phases'>;
   /** Where the CT reads, with everything in: its line currents. */
-  readonly atCt: BoardResult;
+  readonly atCt: Pick<BoardResult, 'phases'>;
   readonly frequencyHz: number;
   /**
    * The capacitors' capacitance as a share of nominal (a tolerance end): `equipped` and `atCt` are solved with
@@ -111,7 +111,7 @@ export interface StepStateInputs {
    */
   readonly capacitanceFactor?: number;
   /** Solves the board with the equipment given and reads the CT's point. */
-  readonly solveAtCt: (equipment: readonly EquipmentGroup[]) => BoardResult;
+  readonly solveAtCt: (equipment: readonly EquipmentGroup[]) => Pick<BoardResult, 'phases'>;
 }
 
 /**
@@ -152,7 +152,7 @@ export function worstStepState(input: StepStateInputs): WorstStepState | null {
  * The largest line current of a state solved, or null where it has no solution: the CT's check then
  * takes the superposition's figure rather than end a study whose design state solved.
  */
-function solvedLargest(solve: () => BoardResult): { phase: PhaseId; currentA: number } | null {
+function solvedLargest(solve: () => Pick<BoardResult, 'phases'>): { phase: PhaseId; currentA: number } | null {
   try {
     const largest = solve().phases.reduce((a, b) => (b.current.magnitude > a.current.magnitude ? b : a));
     return { phase: largest.phase, currentA: largest.current.magnitude };
