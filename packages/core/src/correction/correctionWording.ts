@@ -231,6 +231,8 @@ export const warningText = {
     fixedPart: StepStateResonance['fixedPart'],
     allInNear: boolean,
     scanned: { readonly passes: boolean } | null = null,
+    /** True where the board's own leading loads are counted with the bank (in every state). */
+    withBoardLoads = false,
   ) => {
     checkListArgument(states, 'states', 'the step states near a watched order (StepStateResonance.states)', (x) => typeof x === 'object' && x !== null && Array.isArray((x as StepStateOrders).outputsIn));
     const named = states.slice(0, NAMED_STATES).map((st) => {
@@ -244,7 +246,7 @@ export const warningText = {
     const more = states.length > NAMED_STATES ? `; and ${states.length - NAMED_STATES} more state${states.length - NAMED_STATES === 1 ? '' : 's'} (see the step-state table)` : '';
     if (scanned)
       return `the estimate from the supply path's reactances also puts the resonance near a harmonic order with fewer steps in: ${named.join('; ')}${more}; the harmonic check of this study scanned every step combination and ${scanned.passes ? 'passes the plain bank (the spectra are typical or entered ones: measure the real spectrum before installing)' : 'fails the plain bank (see the harmonic check)'}`;
-    return `${allInNear ? 'also ' : ''}with fewer steps in, the bank and the supply inductance resonate within 10 % of a harmonic order: ${named.join('; ')}${more}. The controller reaches these states as it follows the load: with harmonic-producing loads on the board this needs a harmonic study, and then detuning reactors on the steps, or a switching programme that never leaves the bank in ${states.length === 1 ? 'that combination' : 'those combinations'}, decided with that study by a licensed professional to the local codes`;
+    return `${allInNear ? 'also ' : ''}with fewer steps in, ${withBoardLoads ? "the bank with the board's own leading loads" : 'the bank'} and the supply inductance resonate within 10 % of a harmonic order: ${named.join('; ')}${more}. The controller reaches these states as it follows the load: with harmonic-producing loads on the board this needs a harmonic study, and then detuning reactors on the steps, or a switching programme that never leaves the bank in ${states.length === 1 ? 'that combination' : 'those combinations'}, decided with that study by a licensed professional to the local codes`;
   },
   /** The same resonance where the harmonic check scanned the plain bank in the same study: the estimate defers to the scan. */
   lowResonanceScanned: (orders: readonly number[], near: readonly number[], lowestPeak: number | null, passes: boolean) =>

@@ -297,7 +297,7 @@ export function verifyCorrection(board: Board, options: VerifyCorrectionOptions)
   if (nearResonances.length)
     warn('resonance', warningText.lowResonance(nearResonances, resonance.onBoardKvar > 0 ? (resonance.addedKvar > 0 ? 'both' : 'board') : 'bank', nearOrders, statesChecked), nearResonances[0]!, null);
   if (stepStates && nearPartial.length)
-    warn('resonance-step-state', warningText.stepStateResonance(nearPartial, stepStates.fixedPart, nearResonances.length > 0), nearPartial[0]!.lowestOrder, null);
+    warn('resonance-step-state', warningText.stepStateResonance(nearPartial, stepStates.fixedPart, nearResonances.length > 0, null, resonance.onBoardKvar > 0), nearPartial[0]!.lowestOrder, null);
   if (ssc === null && capacitorKvar > 0) warn('ideal-source', warningText.idealSource);
   const overloads = overloadsCaused(before, after);
   for (const o of overloads) warn('overload-caused', warningText.overloadCaused(o.message), o.value, o.threshold);

@@ -474,7 +474,7 @@ function deferredToScan<Check>(plain: VariantRun<Check>, warnings: readonly Corr
     w.code === 'resonance' && near.length
       ? { ...w, message: warningText.lowResonanceScanned(near, v.resonanceNearOrders, plain.summary.lowestResonanceOrder, plain.summary.passes) }
       : w.code === 'resonance-step-state' && states && nearPartial.length
-        ? { ...w, message: warningText.stepStateResonance(nearPartial, states.fixedPart, near.length > 0, { passes: plain.summary.passes }) }
+        ? { ...w, message: warningText.stepStateResonance(nearPartial, states.fixedPart, near.length > 0, { passes: plain.summary.passes }, v.resonanceCapacitance.onBoardKvar > 0) }
         : w,
   );
 }
