@@ -143,12 +143,13 @@ describe('correct report wording', () => {
     expect(star.verification.overloadsCaused.map((o) => o.code)).toEqual(['neutral-over-rating']);
     expect(star.verification.before.neutral!.current.magnitude).toBeLessThan(160);
     expect(star.verification.after.neutral!.current.magnitude).toBeGreaterThan(160);
-    expect(star.summary).toMatch(/meets the target; but with it in, neutral current 18\d\.\d A exceeds the neutral rating of 160\.0 A$/);
+    // Its supply resonance lies near the 13th too (every step in 13.0, and with fewer steps in): said after the overload.
+    expect(star.summary).toMatch(/meets the target; but with it in, neutral current 18\d\.\d A exceeds the neutral rating of 160\.0 A; and its supply resonance lies within 10 % of the 13th harmonic with every step in and in 1 state with fewer steps in \(see the warnings\)$/);
     expect(star.warnings.map((w) => w.code)).toContain('overload-caused');
     // Said once: not also as "check the neutral against its rating".
     expect(star.warnings.map((w) => w.code)).not.toContain('neutral-worse');
     const text = runTrivar(['correct', `${ROOT}examples/larkspur-court-flats.yaml`, '--arrangement', 'star-bank']).stdout;
-    expect(text).toMatch(/^MEETS THE TARGET, BUT OVERLOADS WHAT FEEDS IT — star bank/m);
+    expect(text).toMatch(/^MEETS THE TARGET, BUT OVERLOADS WHAT FEEDS IT AND ITS SUPPLY RESONANCE LIES NEAR A HARMONIC ORDER —\n {2}star bank/m);
     // The comparison: the cheaper star bank is passed over for the delta bank, and the reason says why.
     const c = compareCorrections(board, {});
     const figures = (a: string) => c.outcomes.find((o) => o.arrangement === a)!.figures!;

@@ -88,10 +88,13 @@ describe("the controller's CT on the equipment's own board", () => {
     expectClose(c.responseThresholdA, (7.5e3 * (400 / 440) ** 2) / SQRT3_U / 15, { rel: 1e-12, abs: 0 }, 'C/k by the formula');
     for (const s of report.selection!.steps) expectClose(s.responseThresholdA, c.responseThresholdA, { rel: 1e-12, abs: 0 }, `step ${s.output} C/k`);
     expect(c.ctBasis.placeWords).toBe('the incomer of Saddle Lane bakery, the board the equipment is on');
-    expect(c.ctBasis.currentWords).toMatch(/^57\.7 A, the largest line current there before correction \(\d+\.\d A after\)$/);
+    // Less capacitance leaves more of the lagging current: the −5 % end is the one that draws more after correction.
+    expect(c.ctBasis.capacitance!.end).toBe('low');
+    expect(c.ctBasis.capacitance!.afterA.low).toBeGreaterThan(c.ctBasis.capacitance!.afterA.high);
+    expect(c.ctBasis.currentWords).toMatch(/^57\.7 A, the largest line current there before correction \(\d+\.\d A after, capacitance at −5 %\)$/);
   });
 
-  it('kiln shed: line A rises from 156.2 A to 173.2 A with the bank, so the CT is 250/5 on the after figure (200/5 on the before one would run at 87 %)', () => {
+  it('kiln shed: line A rises from 156.2 A to 173.2 A with the bank and 175.4 A at +10 % capacitance, so the CT is 250/5 on that figure (200/5 on the before one would run at 87 %)', () => {
     const report = correctBoard(kilnShed, { arrangement: 'delta-bank' });
     const c = controllerOf(report.selection);
     // By hand, before: line A carries 35 kW at 0.97, 36.082 kVA / 230.94 V = 156.24 A.
@@ -106,15 +109,27 @@ describe("the controller's CT on the equipment's own board", () => {
     const pA = 35 + stepKvar / (2 * Math.sqrt(3));
     const afterA = (Math.hypot(pA, qA) * 1000) / (400 / Math.sqrt(3));
     expectClose(afterA, 173.25, { rel: 1e-4, abs: 0 }, 'hand figure after');
+    // The same at each tolerance end, Q_c × 0.95 and × 1.10 (capacitance tolerance −5 %/+10 %): the capacitor moves active
+    // power onto line A, so more capacitance draws more there. −5 %: P_A = 39.759, Q_A = 0.530 → 172.18 A;
+    // +10 %: P_A = 40.511, Q_A = −0.772 → 175.45 A.
+    const atFactor = (k: number) => (Math.hypot(35 + (k * stepKvar) / (2 * Math.sqrt(3)), 35 * Math.tan(Math.acos(0.97)) - (k * stepKvar) / 2) * 1000) / (400 / Math.sqrt(3));
+    expectClose(atFactor(0.95), 172.18, { rel: 1e-4, abs: 0 }, 'hand figure at −5 %');
+    expectClose(atFactor(1.1), 175.45, { rel: 1e-4, abs: 0 }, 'hand figure at +10 %');
     expect(c.ctBasis.sizedOn).toBe('after');
     expectClose(c.ctBasis.largestLineCurrentA!.before, 156.24, { rel: 1e-4, abs: 0 }, 'largest line current before');
-    expectClose(c.ctBasis.currentA, afterA, { rel: 1e-5, abs: 0 }, 'largest line current after');
-    // 1.25 × 173.25 = 216.6 A → 250 A; the before figure alone gives 1.25 × 156.24 = 195.3 A → 200 A.
+    expectClose(c.ctBasis.largestLineCurrentA!.after, afterA, { rel: 1e-5, abs: 0 }, 'largest line current after, nominal capacitance');
+    expect(c.ctBasis.capacitance).toMatchObject({ end: 'high', capacitanceFactor: 1.1 });
+    expectClose(c.ctBasis.capacitance!.afterA.low, atFactor(0.95), { rel: 1e-5, abs: 0 }, 'after at −5 %');
+    expectClose(c.ctBasis.capacitance!.afterA.high, atFactor(1.1), { rel: 1e-5, abs: 0 }, 'after at +10 %');
+    expectClose(c.ctBasis.currentA, atFactor(1.1), { rel: 1e-5, abs: 0 }, 'the CT basis: after, at the +10 % end');
+    // 1.25 × 175.45 = 219.3 A → 250 A; the before figure alone gives 1.25 × 156.24 = 195.3 A → 200 A.
     expect(c.ctPrimaryA).toBe(250);
     // A step across two lines, read per line: C/k = (√3/2) × 17354 / 400 / 50 = 0.7515 A.
     expect(c.thresholdBasis).toBe('line-pair');
     expectClose(c.responseThresholdA, 0.7515, { rel: 2e-4, abs: 0 }, 'C/k');
-    expect(c.ctBasis.currentWords).toBe('173.2 A, the largest line current there after correction (156.2 A before)');
+    expect(c.ctBasis.currentWords).toBe(
+      '175.4 A, the largest line current there after correction, with the capacitors at the +10 % end of their tolerance, the end that draws more there (173.2 A at nominal capacitance; 156.2 A before)',
+    );
   });
 
   it('a selection made on its own chooses on the sizing: the larger of before and after as sized, at the board the equipment is on', () => {
@@ -176,10 +191,12 @@ describe("the controller's CT where the target is measured", () => {
   });
 
   it('a CT given below the after-correction current is warned on that figure', () => {
-    // The kiln shed's line A: 156.2 A before, 173.2 A after; a 160 A CT carries the first, not the second.
+    // The kiln shed's line A: 156.2 A before, 173.2 A after, 175.4 A at +10 % capacitance; a 160 A CT carries the first only.
     const report = correctBoard(kilnShed, { arrangement: 'delta-bank', controller: { ctPrimaryA: 160 } });
     const w = warningOf(report.warnings, 'ct-below-line-current')!;
-    expectClose(w.threshold!, 173.25, { rel: 1e-4, abs: 0 }, 'after figure');
-    expect(w.message).toMatch(/^the CT primary \(160 A\) is below the largest line current \(173\.2 A\) after correction at the incomer of Brook Street kiln shed, the board the equipment is on: .*raise controller\.ctPrimaryA to at least 174 A \(250 A is the next standard rating at or above 1\.25 × it\)$/);
+    expectClose(w.threshold!, 175.45, { rel: 1e-4, abs: 0 }, 'after figure at +10 %');
+    expect(w.message).toMatch(
+      /^the CT primary \(160 A\) is below the largest line current \(175\.4 A\) after correction at the incomer of Brook Street kiln shed, the board the equipment is on, with the capacitors at the \+10 % end of their tolerance: .*raise controller\.ctPrimaryA to at least 176 A \(250 A is the next standard rating at or above 1\.25 × it\)$/,
+    );
   });
 });

@@ -8,7 +8,8 @@
 import { describe, expect, it } from 'vitest';
 import { readFileSync } from 'node:fs';
 import { analyseSolution, correctBoard, NumericalError, normaliseBoard, parseBoard, readBoardText, solveNetwork, type EquipmentGroup } from '@trivar/core';
-import type { BankStep } from '../../packages/core/src/correction/correctionResult.js';
+import type { BankStep, ControllerSettings } from '../../packages/core/src/correction/correctionResult.js';
+import { controllerWarnings, ctBasisOf, standardCtPrimaryA } from '../../packages/core/src/correction/controllerSettings.js';
 import { addCorrectionEquipment } from '../../packages/core/src/correction/equipment.js';
 import { largestSwitching, worstStepState } from '../../packages/core/src/correction/switchedStepStates.js';
 import { expectClose } from '../support/tolerance.js';
@@ -154,9 +155,67 @@ describe('corner bakery: the compensator keeps its reactors in while its capacit
     // The board re-solved with the two reactors alone (C-A 17.73 kvar, B-N 4.53 kvar) carries 95.14 A on B.
     near(basis.currentA, 95.14, 0.005);
     expect(basis.stepState!.phase).toBe('B');
-    expect(basis.currentWords).toBe('95.1 A on line B with the reactors in and every switched step out, the largest line current there in any state of the steps (90.4 A before correction, 65.3 A with every step in)');
+    // Reactors alone draw the same at either tolerance end (no capacitor in): the end is named only for the every-step-in figure.
+    expect(basis.capacitance!.stepStateA!.low).toBe(basis.capacitance!.stepStateA!.high);
+    expect(basis.currentWords).toBe(
+      `95.1 A on line B with the reactors in and every switched step out, the largest line current there in any state of the steps (90.4 A before correction, ${basis.capacitance!.afterA.high.toFixed(1)} A with every step in at +10 % capacitance)`,
+    );
     const w = r.warnings.find((x) => x.code === 'ct-below-line-current')!;
     expect(w.threshold).toBe(basis.currentA);
     expect(w.message).toContain('the CT primary (95 A) is below the largest line current (95.1 A) on line B with the reactors in and every switched step out');
+  });
+});
+
+describe('the CT at the capacitance tolerance end that draws more where it reads', () => {
+  // Glaze kiln: an 11.547 kW heater B-N (50.0 A ∠−120°); a 10 kvar reactor B-N and a 6 kvar capacitor B-N stay in,
+  // a 4 kvar capacitor step B-N switches. By hand (ideal source, V_BN = 230.94 V), with the capacitance at k × nominal:
+  // step in, the net is 10 − 10k kvar; step out, 10 − 6k kvar, |I_B| = √(50² + (net/230.94 V)²).
+  // Step out: k = 0.95 → 4.3 kvar, 18.62 A, 53.35 A; k = 1 → 52.92 A; k = 1.10 → 3.4 kvar, 14.72 A, 52.12 A.
+  // Step in: k = 0.95 → 50.05 A; k = 1.10 → 50.19 A. So the −5 % end, with the step out, is the CT's figure.
+  const board = boardOf([
+    'name: Glaze kiln room',
+    'supply: { system: three-phase-4wire, voltage: { lineToLine: 400 }, frequencyHz: 50 }',
+    'loads: [ { name: Glaze kiln, connection: B-N, kW: 11.5470054, pf: 1, model: constant-impedance } ]',
+  ]);
+  const equipment = [branchGroup('B-N', -10, -10, VLN), branchGroup('B-N', 10, 6, VLN)];
+  const steps = [step(null, 'B-N', 6, VLN), step(1, 'B-N', 4, VLN)];
+  const hand = (netKvar: number) => Math.hypot(50, (netKvar * 1000) / VLN);
+  const endReading = (k: number) => {
+    const solveWith = (eq: readonly EquipmentGroup[]) => analyseSolution(solveNetwork(addCorrectionEquipment(board, eq, { capacitanceFactor: k })));
+    const all = solveWith(equipment);
+    const worst = worstStepState({ steps, equipment, equipped: all, atCt: all, frequencyHz: 50, capacitanceFactor: k, solveAtCt: solveWith });
+    return { capacitanceFactor: k, afterA: Math.max(...all.phases.map((p) => p.current.magnitude)), stepState: worst && { ...worst, lineLabel: worst.phase } };
+  };
+
+  it('each end re-solved: the step out draws 53.35 A at −5 % and 52.12 A at +10 %; every step in 50.05 A and 50.19 A', () => {
+    const low = endReading(0.95);
+    const high = endReading(1.1);
+    near(low.afterA, hand(10 - 9.5), 1e-4);
+    near(high.afterA, hand(10 - 11), 1e-4);
+    near(low.stepState!.currentA, hand(10 - 5.7), 1e-4);
+    near(low.stepState!.currentA, 53.35, 0.005);
+    near(high.stepState!.currentA, hand(10 - 6.6), 1e-4);
+    near(high.stepState!.currentA, 52.12, 0.005);
+    expect(low.stepState!.outputsOut).toEqual([1]);
+    // The superposition that chose the state scales each step's current by the same factor: exact on this linear board.
+    near(low.stepState!.estimateA, low.stepState!.currentA, 1e-6);
+  });
+
+  it('the CT basis takes the −5 % end (53.35 A, not 52.92 A at nominal nor 52.12 A at +10 %), and says so', () => {
+    const lines = [{ currentA: { before: 50, after: hand(0), change: hand(0) - 50 } }];
+    const basis = ctBasisOf({ place: 'board', point: 'Glaze kiln room', lines, afterFrom: 'as-built', toleranceEnds: { low: endReading(0.95), high: endReading(1.1) } });
+    expect(basis.sizedOn).toBe('step-state');
+    expect(basis.capacitance).toMatchObject({ end: 'low', capacitanceFactor: 0.95 });
+    near(basis.currentA, 53.35, 0.005);
+    near(basis.capacitance!.stepStateA!.low, hand(4.3), 1e-4);
+    near(basis.capacitance!.stepStateA!.high, hand(3.4), 1e-4);
+    expect(basis.currentWords).toBe(
+      '53.4 A on line B with the reactors and the fixed capacitors in and every switched step out, with the capacitors at the −5 % end of their tolerance, the end that draws more there, the largest line current there in any state of the steps (50.0 A before correction, 50.0 A with every step in at −5 % capacitance)',
+    );
+    // 1.25 × 53.35 = 66.7 A → 75/5; at nominal, 1.25 × 52.92 = 66.2 A → 75/5 too: the check, not the choice, moves here.
+    expect(standardCtPrimaryA(1.25 * basis.currentA)).toBe(75);
+    const given = controllerWarnings({ ...({} as ControllerSettings), ctChosen: false, ctPrimaryA: 53, ctBasis: basis, responseSettingA: 1 });
+    expect(given.map((w) => w.code)).toEqual(['ct-below-line-current']);
+    expect(given[0]!.message).toContain('(53.4 A) on line B with the reactors and the fixed capacitors in and every switched step out at the incomer of Glaze kiln room, the board the equipment is on, with the capacitors at the −5 % end of their tolerance');
   });
 });

@@ -46,6 +46,9 @@ const VERDICT: Record<string, string> = {
 /** Meets the target while it overloads what feeds the board (see compareCorrections' rule). */
 const overloading = (o: ArrangementOutcome): boolean => !!o.report && o.report.status.startsWith('meets') && o.report.verification.overloadsCaused.length > 0;
 
+/** Meets the target while its supply resonance lies near a harmonic order in a state its controller can reach (see compareCorrections' rule). */
+const resonating = (o: ArrangementOutcome): boolean => !!o.report && o.report.status.startsWith('meets') && o.report.verification.resonanceNearHarmonic;
+
 /** Arrangements that meet the target but fail the harmonic check in every variant (a comparison with harmonic data). */
 function failingHarmonicCheck(c: CorrectionComparison): ReadonlySet<Arrangement> {
   const arrangements = (c as Partial<HarmonicComparison>).harmonics?.arrangements ?? [];
@@ -63,7 +66,7 @@ function row(o: ArrangementOutcome, names: Readonly<Record<Arrangement, string>>
   const noAfter = !built && o.report.status !== 'already-meets-target';
   return [
     name,
-    partBuilt ? 'part built' : failsCheck.has(o.arrangement) && o.report.status.startsWith('meets') ? 'fails check' : overloading(o) ? 'overloads' : (VERDICT[o.report.status] ?? o.report.status),
+    partBuilt ? 'part built' : failsCheck.has(o.arrangement) && o.report.status.startsWith('meets') ? 'fails check' : overloading(o) ? 'overloads' : resonating(o) ? 'near harmonic' : (VERDICT[o.report.status] ?? o.report.status),
     built ? fixed(f.deliveredKvar, 1) + (f.reactorKvar > 0 ? `+L${fixed(f.reactorKvar, 1)}` : '') : '-',
     built ? fixed(f.nameplateKvar, 1) : '-',
     built ? String(f.units) : '-',
@@ -126,7 +129,7 @@ export function renderComparisonReport(c: CorrectionComparison): string {
       ) +
       '\n' +
       [
-        `${names['star-bank'] === TWO_LINE_TABLE_NAMES['star-bank'] ? `${TWO_LINE_LEGEND}; ` : ''}delivered: kvar at the solved voltage (+L: reactor kvar); nom C: at nominal capacitance only;${c.outcomes.some((o) => o.report?.status === 'no-suitable-units' && (o.report.selection?.units ?? 0) > 0) ? ' part built: no unit suits some branches, the rest built without them;' : ''}${c.outcomes.some(overloading) ? ' overloads: meets the target, but with it in a conductor or the supply is above its rating (see Recommendation);' : ''}${failing.size ? ' fails check: meets the target, but no variant passes the harmonic check;' : ''} plate: nameplate kvar; PF after: the PF the target is defined on (per-line: the lowest line); neutral: A after; loss: ${lossesPlaceWords(first?.verification.before.incomer ?? null)} after`,
+        `${names['star-bank'] === TWO_LINE_TABLE_NAMES['star-bank'] ? `${TWO_LINE_LEGEND}; ` : ''}delivered: kvar at the solved voltage (+L: reactor kvar); nom C: at nominal capacitance only;${c.outcomes.some((o) => o.report?.status === 'no-suitable-units' && (o.report.selection?.units ?? 0) > 0) ? ' part built: no unit suits some branches, the rest built without them;' : ''}${c.outcomes.some(overloading) ? ' overloads: meets the target, but with it in a conductor or the supply is above its rating (see Recommendation);' : ''}${c.outcomes.some((o) => resonating(o) && !overloading(o)) ? ' near harmonic: meets the target, but in a step state its controller can reach the supply resonance lies within 10 % of a harmonic order (see its warnings);' : ''}${failing.size ? ' fails check: meets the target, but no variant passes the harmonic check;' : ''} plate: nameplate kvar; PF after: the PF the target is defined on (per-line: the lowest line); neutral: A after; loss: ${lossesPlaceWords(first?.verification.before.incomer ?? null)} after`,
         ...c.outcomes.filter((o) => o.notApplicable).map((o) => `${fullNames[o.arrangement]}: ${o.notApplicable}`),
         ...exemptFootnote(c),
       ]

@@ -1,5 +1,5 @@
 /** CorrectionReport → the human-readable report of `trivar correct` (fits 100 columns). */
-import { exemptLeadingLines, lossesPlaceWords, arrangementDescriptions, arrangementNames, BUILD_VERDICT_WORDS, CORRECTION_DEFAULTS, labellerOf, meteringPointWords, reactorChanges, smallBranchWords, sparedBranchesWords, type BankSelection, type BankStep, type BeforeAfter, type BranchSizing, type CompensatorSizing, type ControllerSettings, type CorrectionReport, type CorrectionVerification, type FewerBranchesBuild, type PhaseId, type RoundingBesideReactors, type PhaseLabeller, signedPfText, linePfText, exportingLinesNote, isExportCurrentA, starWordOf, type StarWord } from '@trivar/core';
+import { stepStatesClearWords, stepStateTable, exemptLeadingLines, lossesPlaceWords, arrangementDescriptions, arrangementNames, BUILD_VERDICT_WORDS, CORRECTION_DEFAULTS, labellerOf, meteringPointWords, reactorChanges, smallBranchWords, sparedBranchesWords, type BankSelection, type BankStep, type BeforeAfter, type BranchSizing, type CompensatorSizing, type ControllerSettings, type CorrectionReport, type CorrectionVerification, type FewerBranchesBuild, type PhaseId, type RoundingBesideReactors, type PhaseLabeller, signedPfText, linePfText, exportingLinesNote, isExportCurrentA, starWordOf, type StarWord } from '@trivar/core';
 import { fixed, renderTable, section } from './textTable.js';
 import { headerLines } from './solveReport.js';
 import { wrapText } from './wrapText.js';
@@ -22,6 +22,8 @@ function headline(r: CorrectionReport): string {
   if (!r.status.startsWith('meets')) return words;
   const buts = [
     ...(r.verification.overloadsCaused.length ? ['OVERLOADS WHAT FEEDS IT'] : []),
+    // The estimate near a harmonic order in a state the controller can reach (every step in included).
+    ...(r.verification.resonanceNearHarmonic ? ['ITS SUPPLY RESONANCE LIES NEAR A HARMONIC ORDER'] : []),
     ...(r.warnings.some((w) => w.code === 'harmonic-check-failed') ? ['FAILS THE HARMONIC CHECK'] : []),
   ];
   return buts.length ? `${words}, BUT ${buts.join(' AND ')}` : words;
@@ -368,8 +370,8 @@ function resonanceWords(v: CorrectionVerification, detuned: boolean): string {
   const reactors = c.reactorKvar > 0 ? `; Q_L = ${fixed(c.reactorKvar, 1)} kvar of reactors added` : '';
   const path = `; X_path = ${pathReactanceWords(v)} (S_sc,X = ${fixed(c.reactanceShortCircuitKVA ?? 0, 0)} kVA; its resistance damps the peak but hardly moves it)`;
   const near = v.resonanceNearOrders.length ? `; within 10 % of order ${v.resonanceNearOrders.join(', ')}` : '';
-  // Estimated with all the added capacitance in: fewer steps in raise every order (less capacitance).
-  const states = c.addedKvar > 0 ? '; with every step in (with fewer steps in, the orders lie higher)' : '';
+  // Estimated with all the added capacitance in: fewer steps in raise every order (less capacitance), each state below.
+  const states = c.addedKvar > 0 ? (v.resonanceStepStates ? '; with every step in (each step state below)' : '; with every step in (with fewer steps in, the orders lie higher)') : '';
   return `${head} at about ${figure}${near}; Q_C = ${parts.join(' + ')}${reactors}${path}${states}`;
 }
 
@@ -386,6 +388,11 @@ function checksBlock(v: CorrectionVerification, detuned = false): string {
     `steady voltage rise: ${voltageRiseEstimateWords(vr, v)}; solved ${fixed(vr.solvedPercent, 2)} %; flag above ${vr.limitPercent} %${vr.flagged ? '  ← FLAGGED' : ''}`,
   );
   out.push(resonanceWords(v, detuned));
+  // The step states under the resonance line: a table is set as it is, not wrapped.
+  const table = stepStatesBlock(v);
+  if (table.line) out.push(table.line);
+  const head = indentLines(out) + (table.table ? `\n${table.table}` : '');
+  out.length = 0;
   if (v.lightLoad) {
     const ll = v.lightLoad;
     const lines = ll.lines.map((l) => `${label(l.phase)} ${pfFigure(l.pf)} ${senseWord(l.sense)}`.trim()).join(', ');
@@ -393,7 +400,23 @@ function checksBlock(v: CorrectionVerification, detuned = false): string {
       `light load (${fixed(ll.fraction * 100, 0)} % of the loads, fixed part ${fixed(ll.fixedKvar, 2)} kvar only): ${lines || 'no lines'}${ll.ok ? ' — no line leads' : ` — LEADS on ${ll.leadingLines.map(label).join(', ')}`}; voltage rise ${fixed(ll.voltageRise.solvedPercent, 2)} %`,
     );
   }
-  return indentLines(out);
+  return out.length ? `${head}\n${indentLines(out)}` : head;
+}
+
+/**
+ * The supply resonance in every state the controller can reach: one line where none lies near a watched
+ * order, else a small table of the states (stepStateTable) under a heading.
+ */
+function stepStatesBlock(v: CorrectionVerification): { line: string | null; table: string | null } {
+  const r = v.resonanceStepStates;
+  if (!r) return { line: null, table: null };
+  if (r.nearStates === 0) return { line: stepStatesClearWords(r), table: null };
+  const t = stepStateTable(r);
+  const columns = t.header.map((header, k) => ({ header, align: k === 0 || k === 3 ? ('left' as const) : ('right' as const) }));
+  return {
+    line: `resonance in each step state the controller can reach (${r.nearStates} of ${r.states.length} within 10 % of a harmonic order):`,
+    table: `${renderTable(columns, t.rows, '    ')}\n${wrapText(t.note, '    ', '      ')}`,
+  };
 }
 
 function balanceLine(r: CorrectionReport): string[] {

@@ -5,7 +5,10 @@
  *
  * Recommendation rule (common practice, no source): first what meets the
  * target across the capacitance tolerance, then at nominal capacitance, then
- * nothing to do, and after all of those what meets the target but overloads a
+ * nothing to do, then what meets the target but puts the supply resonance within
+ * the band of a watched harmonic order in a state the controller can reach (the
+ * estimate; a harmonic check's scan decides where the study has one), and after
+ * all of those what meets the target but overloads a
  * conductor or the supply that was not overloaded without it; among those the least cost (the unit choice's cost, plus a
  * reactor at twice the cost of a capacitor of the same kvar); costs within 5 %
  * count as equal and the lower losses after correction decide. Where nothing
@@ -132,6 +135,8 @@ const STATUS_RANK: Record<CorrectionStatus, number> = {
 
 /** Where a build that meets the target but overloads a conductor or the supply ranks: after every one that meets it without, before a miss. */
 const OVERLOAD_RANK = 1.5;
+/** Where a build that meets the target but resonates near a harmonic order in a reachable step state ranks: after every one that meets it clear of one, before an overload. */
+const RESONANCE_RANK = 1.2;
 
 /**
  * Sizes, builds and verifies every arrangement that fits the board, and recommends one.
@@ -173,9 +178,11 @@ export function recommendArrangement(outcomes: readonly ArrangementOutcome[], am
   if (!candidates.length) return { recommended: null, meetsTarget: false, why: comparisonWording.noneStudied, rule: comparisonWording.rule };
   // Meeting the target while overloading what feeds the board ranks after every build that meets it without.
   const overloads = (o: (typeof studied)[number]) => o.report.verification.overloadsCaused.length > 0;
+  // So does one whose supply resonance lies near a harmonic order in a state the controller can reach, as its warnings say.
+  const resonates = (o: (typeof studied)[number]) => o.report.status.startsWith('meets') && o.report.verification.resonanceNearHarmonic;
   const rank = (o: (typeof studied)[number]) => {
     const r = STATUS_RANK[o.report.status];
-    return r <= 1 && overloads(o) ? OVERLOAD_RANK + r / 10 : r;
+    return r <= 1 && overloads(o) ? OVERLOAD_RANK + r / 10 : r <= 1 && resonates(o) ? RESONANCE_RANK + r / 10 : r;
   };
   const bestRank = Math.min(...candidates.map(rank));
   const pool = candidates.filter((o) => rank(o) === bestRank);
@@ -193,7 +200,7 @@ export function recommendArrangement(outcomes: readonly ArrangementOutcome[], am
     names[chosen.arrangement],
     chosen.report.status,
     chosen.figures,
-    others.map((o) => ({ name: names[o.arrangement], status: o.report.status, cost: o.figures.cost, lossesKW: o.figures.lossesKW, overloads: overloads(o), withheld: o.report.nothingToBuild?.withheldWords ?? null })),
+    others.map((o) => ({ name: names[o.arrangement], status: o.report.status, cost: o.figures.cost, lossesKW: o.figures.lossesKW, overloads: overloads(o), withheld: o.report.nothingToBuild?.withheldWords ?? null, resonates: resonates(o) })),
     meetsTarget && near.length > 1,
   );
   // A verdict never hides that an arrangement makes the balance notably worse (see balanceWorsening).
@@ -208,7 +215,9 @@ export function recommendArrangement(outcomes: readonly ArrangementOutcome[], am
   const ownLead = chosen.report.verification.before.warnings.find((w) => w.code === 'line-leading');
   // Nothing to build: why, in the figures of each line's need, and what to do instead.
   const nothing = chosen.report.nothingToBuild;
-  const notes = [...(nothing ? [nothing.why, nothing.advice] : []), ...(ownLead ? [comparisonWording.ownCapacitorsLead(ownLead.message)] : []), ...overloaded, ...worse];
+  // The recommended build resonating near a harmonic order: none meets the target clear of one, and the verdict says it.
+  const resonating = resonates(chosen) && !overloads(chosen) ? [comparisonWording.resonates(names[chosen.arrangement])] : [];
+  const notes = [...(nothing ? [nothing.why, nothing.advice] : []), ...(ownLead ? [comparisonWording.ownCapacitorsLead(ownLead.message)] : []), ...resonating, ...overloaded, ...worse];
   const whyAll = notes.length ? `${why}; ${notes.join('; ')}` : why;
   return { recommended: chosen.arrangement, meetsTarget, why: whyAll, rule: comparisonWording.rule };
 }

@@ -85,22 +85,52 @@ export interface CtReading {
   readonly afterFrom: 'as-built' | 'as-sized';
   /** The worst state of the switched steps other than every step in; null or absent where there is none. */
   readonly stepState?: StepStateCurrent | null;
+  /**
+   * The readings at each capacitance tolerance end, where the build was solved there: the CT is then sized on
+   * the end with the larger current (its after and worst step state; `lines`' after and `stepState` are at nominal
+   * and stand aside).
+   */
+  readonly toleranceEnds?: { readonly low: CtEndReading; readonly high: CtEndReading } | null;
+}
+
+/** Where the CT reads, at one capacitance tolerance end. */
+export interface CtEndReading {
+  readonly capacitanceFactor: number;
+  /** The largest line current there with every step in, A. */
+  readonly afterA: number;
+  /** The worst state of the switched steps at this end; null where there is none. */
+  readonly stepState: StepStateCurrent | null;
 }
 
 /** The CT's basis: where it reads and the largest of the before, after and worst step-state currents there, or a current the caller gave. */
 export function ctBasisOf(reading: CtReading | { readonly givenA: number }): CtBasis {
   if ('givenA' in reading)
-    return withWords({ place: 'board', point: null, largestLineCurrentA: null, afterFrom: null, stepState: null, sizedOn: 'given', currentA: reading.givenA });
+    return withWords({ place: 'board', point: null, largestLineCurrentA: null, afterFrom: null, stepState: null, capacitance: null, sizedOn: 'given', currentA: reading.givenA });
   const before = Math.max(0, ...reading.lines.map((l) => l.currentA.before));
-  const after = Math.max(0, ...reading.lines.map((l) => l.currentA.after));
-  const stepState = reading.stepState ?? null;
+  const nominalAfter = Math.max(0, ...reading.lines.map((l) => l.currentA.after));
+  // At the tolerance end that draws more where the CT reads (the high end is not always it).
+  const ends = reading.toleranceEnds ?? null;
+  const worstAt = (e: CtEndReading) => Math.max(e.afterA, e.stepState?.currentA ?? 0);
+  const end = ends === null ? null : worstAt(ends.high) >= worstAt(ends.low) ? ('high' as const) : ('low' as const);
+  const used = ends === null || end === null ? null : ends[end];
+  const after = used ? used.afterA : nominalAfter;
+  const stepState = used ? used.stepState : (reading.stepState ?? null);
   const sizedOn = stepState && stepState.currentA > Math.max(before, after) ? 'step-state' : after > before ? 'after' : 'before';
   return withWords({
     place: reading.place,
     point: reading.point,
-    largestLineCurrentA: { before, after },
+    largestLineCurrentA: { before, after: nominalAfter },
     afterFrom: reading.afterFrom,
     stepState,
+    capacitance:
+      ends && end && used
+        ? {
+            end,
+            capacitanceFactor: used.capacitanceFactor,
+            afterA: { low: ends.low.afterA, high: ends.high.afterA },
+            stepStateA: ends.low.stepState || ends.high.stepState ? { low: ends.low.stepState?.currentA ?? ends.low.afterA, high: ends.high.stepState?.currentA ?? ends.high.afterA } : null,
+          }
+        : null,
     sizedOn,
     currentA: Math.max(before, after, stepState?.currentA ?? 0),
   });

@@ -11,7 +11,7 @@ import { InputError, inputIssue } from '../errors.js';
 import { addCorrectionEquipment, kvarFromSusceptance, reactorKvarOf, type EquipmentGroup } from './equipment.js';
 import { worstStepState } from './switchedStepStates.js';
 import { meteringPlace, solveMeter } from './meteringPoint.js';
-import { analyseSolution } from '../analysis/analyseSolution.js';
+import { readTargetFigures } from '../analysis/analyseSolution.js';
 import { solveNetwork } from '../network/solveNetwork.js';
 import { parseCorrectionSpec } from './validateCorrectionSpec.js';
 import { resolveTarget, TARGET_SLACK, widthlessTargetPf, type TargetCheck } from './correctionTarget.js';
@@ -26,8 +26,8 @@ import type { BankSelection, BankSizing, BuildVerdict, CompensatorSizing, Correc
 import { nothingToBuildOf, withheldBuildOf } from './nothingToBuild.js';
 import { catalogueUnitOf, TYPICAL_CATALOGUES } from './unitCatalogues.js';
 import type { TargetDefinition } from './correctionSpec.js';
-import { withCtReading, type CtReading } from './controllerSettings.js';
-import { arrangementNames, correctionCautions, ctRatingWords, nothingToBuildCautions, exemptLeadingLines, exemptLeadingWords, infeasibleReason, lostNeutralCaution, lostNeutralUnequal, MODEL_CAUTION, meteringWarning, reportSummary, warningText } from './correctionWording.js';
+import { withCtReading, type CtEndReading, type CtReading } from './controllerSettings.js';
+import { arrangementNames, resonanceSummaryClause, correctionCautions, ctRatingWords, nothingToBuildCautions, exemptLeadingLines, exemptLeadingWords, infeasibleReason, lostNeutralCaution, lostNeutralUnequal, MODEL_CAUTION, meteringWarning, reportSummary, warningText } from './correctionWording.js';
 import { definedOnly } from './_internal/optionSchemas.js';
 import { assertViableBoard } from '../analysis/viableOperatingPoint.js';
 import { CORRECTION_DEFAULTS, toleranceFractions } from './correctionDefaults.js';
@@ -260,9 +260,10 @@ export function correctBoardBuilt(board: Board, spec: unknown, construction: { r
       preference,
       nameHeldBack,
     );
-  const verifyOptions = (equipment: VerifyCorrectionOptions['equipment']): VerifyCorrectionOptions =>
+  const verifyOptions = (equipment: VerifyCorrectionOptions['equipment'], steps?: VerifyCorrectionOptions['steps']): VerifyCorrectionOptions =>
     definedOnly({
       equipment,
+      steps,
       target: parsed.target,
       arrangement: parsed.arrangement,
       lightLoad: parsed.lightLoad,
@@ -300,7 +301,8 @@ export function correctBoardBuilt(board: Board, spec: unknown, construction: { r
           })
         : null;
     const recommended = sizing.status === 'already-meets-target' ? [] : refit?.used ? refit.equipment : (selection?.equipment ?? sized.equipment);
-    const verification = verifyCorrection(board, verifyOptions(recommended));
+    // The steps as built, so the resonance is judged in every state the controller can reach.
+    const verification = verifyCorrection(board, verifyOptions(recommended, selection && !selection.unbuildable && recommended.length ? selection.steps : undefined));
     const judged: BuildVerdict = selection?.unbuildable
       ? 'no-units'
       : !verification.check.met || (sizing.arrangement === 'balancing-compensator' && !judgeBalance(verification.after, sizing.balance).met)
@@ -402,25 +404,32 @@ export function correctBoardBuilt(board: Board, spec: unknown, construction: { r
   // The controller's CT goes where it reads (where the target is measured, else the equipment's board) and
   // carries the largest current there: before, with every step in, or in the worst state of the switched
   // steps (a fixed reactor with the capacitors out, trim steps apart): chosen and checked on the build as verified.
+  // Capacitors are made to a tolerance: the CT is sized at the end that draws more where it reads, each end solved
+  // (with load current there, more capacitance can mean less current: the high end is not always the worse).
   const meter = meterForCt;
-  const worst =
-    asBuilt && asBuilt.controller
-      ? worstStepState({
-          steps: asBuilt.steps,
-          equipment: verification.equipment,
-          equipped: verification.after,
-          atCt: verification.metering?.after ?? verification.after,
-          frequencyHz: board.frequencyHz,
-          solveAtCt: (equipment) => {
-            const equipped = addCorrectionEquipment(board, equipment);
-            return meter ? solveMeter(equipped, meter) : analyseSolution(solveNetwork(equipped));
-          },
-        })
-      : null;
-  const stepState = worst && { ...worst, lineLabel: label(worst.phase) };
+  const endReading = (capacitanceFactor: number): CtEndReading => {
+    // Only the line figures are read (readTargetFigures), not the whole analysis: a few solves per build.
+    const solveAt = (equipment: readonly EquipmentGroup[]) => {
+      const equipped = addCorrectionEquipment(board, equipment, { capacitanceFactor });
+      const atBoard = readTargetFigures(solveNetwork(equipped));
+      return { atBoard, atCt: meter ? solveMeter(equipped, meter, {}, readTargetFigures) : atBoard };
+    };
+    const all = solveAt(verification.equipment);
+    const worst = worstStepState({
+      steps: asBuilt!.steps,
+      equipment: verification.equipment,
+      equipped: all.atBoard,
+      atCt: all.atCt,
+      frequencyHz: board.frequencyHz,
+      capacitanceFactor,
+      solveAtCt: (equipment) => solveAt(equipment).atCt,
+    });
+    return { capacitanceFactor, afterA: Math.max(0, ...all.atCt.phases.map((p) => p.current.magnitude)), stepState: worst && { ...worst, lineLabel: label(worst.phase) } };
+  };
+  const toleranceEnds = asBuilt && asBuilt.controller ? { low: endReading(verification.tolerance.low.capacitanceFactor), high: endReading(verification.tolerance.high.capacitanceFactor) } : null;
   const ctReading: CtReading = verification.metering
-    ? { place: 'metering-point', point: verification.metering.point, lines: verification.metering.lines, afterFrom: 'as-built', stepState }
-    : { place: 'board', point: board.name, lines: verification.lines, afterFrom: 'as-built', stepState };
+    ? { place: 'metering-point', point: verification.metering.point, lines: verification.metering.lines, afterFrom: 'as-built', toleranceEnds }
+    : { place: 'board', point: board.name, lines: verification.lines, afterFrom: 'as-built', toleranceEnds };
   const withCt = asBuilt && withCtReading(asBuilt, ctReading, parsed.controller ?? {});
   // Short of the target across the tolerance: the step the least step held back, where one would have fitted, is named.
   const heldBack = withCt ? heldBackStep : null;
@@ -530,7 +539,9 @@ export function correctBoardBuilt(board: Board, spec: unknown, construction: { r
       // A line that led before is held to another rule than the target as written: the verdict says which and why.
       (status.startsWith('meets') ? exemptWords(verification, label) : '') +
       // Meeting the PF target says nothing of what the equipment overloads: the summary says it beside the verdict.
-      (verification.overloadsCaused.length ? `; but with it in, ${verification.overloadsCaused.map((o) => o.message).join('; ')}` : ''),
+      (verification.overloadsCaused.length ? `; but with it in, ${verification.overloadsCaused.map((o) => o.message).join('; ')}` : '') +
+      // Nor of a supply resonance near a harmonic order in a state the controller can reach.
+      (status.startsWith('meets') ? resonanceSummaryClause(verification, verification.overloadsCaused.length ? 'and' : 'but') : ''),
     reasons,
     target,
     sizing,

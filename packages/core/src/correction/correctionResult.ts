@@ -300,6 +300,14 @@ export interface CtBasis {
    * none to add (no switched step, or a single one and no fixed part), or the caller gave the figure.
    */
   readonly stepState: StepStateCurrent | null;
+  /**
+   * The capacitance tolerance end the CT's after and step-state figures are read at: the one that gives the larger
+   * current there. |I| of a line is convex in the capacitance, so an end bounds every capacitance between; with load
+   * current at the CT the high end is not always the worse (capacitors taking a lagging line past unity draw more
+   * the more they are). Null where the caller gave the figure or the reading was at nominal capacitance only
+   * (a selection without a board). `stepState` is the worst state at that end.
+   */
+  readonly capacitance: CtCapacitanceEnd | null;
   /** Which figure the CT is chosen on and checked against: the largest of them, or the one given. */
   readonly sizedOn: 'before' | 'after' | 'step-state' | 'given';
   /** That figure, A. */
@@ -308,6 +316,48 @@ export interface CtBasis {
   readonly placeWords: string;
   /** The figure in words ("112.7 A, the largest line current there before correction (95.3 A after)"). */
   readonly currentWords: string;
+}
+
+/** One state the controller can put the bank in, and its supply resonance (stepStateResonance.ts). */
+export interface StepStateOrders {
+  /** Controller outputs switched in and out (the fixed part, if any, is always in). */
+  readonly outputsIn: readonly number[];
+  readonly outputsOut: readonly number[];
+  /** Other combinations of outputs in with the same capacitance on every branch (equal steps): the same network, the same orders. */
+  readonly alike: readonly (readonly number[])[];
+  /** The equipment's capacitors in this state, kvar at nominal voltage. */
+  readonly capacitorKvarAtNominalV: number;
+  /** Its resonance orders with the supply path, lowest first (those within 0.5 % of the one before left out). */
+  readonly orders: readonly number[];
+  readonly lowestOrder: number | null;
+  /** The watched orders within the resonance band of any of `orders`; empty when none. */
+  readonly nearOrders: readonly number[];
+  /** Those of `orders` that lie within the band of a watched order. */
+  readonly resonancesNear: readonly number[];
+}
+
+/** The supply resonance in every state of the switched steps (stepStateResonance.ts). */
+export interface StepStateResonance {
+  /** Distinct states: every step in first, then by capacitance, most first. */
+  readonly states: readonly StepStateOrders[];
+  /** How many combinations of the switched outputs the controller can reach (without a fixed part, every step out is the board as it was and not counted). */
+  readonly combinations: number;
+  /** What stays in whatever the controller does. */
+  readonly fixedPart: { readonly reactors: boolean; readonly capacitors: boolean };
+  /** How many of `states` have an order near a watched one. */
+  readonly nearStates: number;
+}
+
+/** The tolerance end a CT is sized at, with the figures at both ends (see CtBasis.capacitance). */
+export interface CtCapacitanceEnd {
+  /** The end used: the one with the larger current where the CT reads. */
+  readonly end: 'low' | 'high';
+  /** Its capacitance as a share of nominal (0.95, 1.10). */
+  readonly capacitanceFactor: number;
+  /** The largest line current there with every step in, at each end, A. */
+  readonly afterA: { readonly low: number; readonly high: number };
+  /** The worst step state's largest line current at each end, A; null where there is no state to add. */
+  readonly stepStateA: { readonly low: number; readonly high: number } | null;
 }
 
 /** The largest line current where the CT reads in the worst state of the switched steps (see CtBasis). */
@@ -624,6 +674,18 @@ export interface CorrectionVerification {
   readonly resonanceNearOrders: readonly number[];
   /** What `resonanceOrder` is worked from, kvar at the solved voltages with the equipment in. */
   readonly resonanceCapacitance: ResonanceCapacitance;
+  /**
+   * The resonance orders in every state the controller can put the bank in (the fixed part with each combination
+   * of switched steps, stepStateResonance.ts); null where the build has no switched step or no estimate (an ideal
+   * source, a detuned bank whose harmonic check decides).
+   */
+  readonly resonanceStepStates: StepStateResonance | null;
+  /**
+   * True where the resonance estimate lies within the band of a watched order with every step in or in any
+   * state the controller can reach: what the resonance warnings say, the verdict's headline and the
+   * comparison's ranking weigh. False where the harmonic check's scan of every step combination decides.
+   */
+  readonly resonanceNearHarmonic: boolean;
   readonly lightLoad: LightLoadCheck | null;
   /**
    * What the equipment overloads that was not overloaded without it (a line, the neutral, the supply

@@ -6,12 +6,13 @@ import type { PhaseLabel } from '../board/conventions/phaseNames.js';
 import type { PhaseId } from '../board/boardModel.js';
 import type { PowerFactorSense } from '../analysis/boardResult.js';
 import type { Arrangement, TargetDefinition } from './correctionSpec.js';
-import type { BuildVerdict, CtBasis, LeastSwitchedStep, SmallBranch, StepStateCurrent, SparedBranch, TargetName } from './correctionResult.js';
+import type { BuildVerdict, CtBasis, LeastSwitchedStep, SmallBranch, StepStateCurrent, StepStateOrders, StepStateResonance, SparedBranch, TargetName } from './correctionResult.js';
 import { argumentIssueError, checkListArgument, checkNumberArgument, checkObjectArgument, checkTextArgument, checkWordArgument } from '../_internal/argumentChecks.js';
 import { starWordOf, type StarWord } from '../board/conventions/regionWords.js';
 import { REGIONS, type Region } from '../board/conventions/region.js';
 import { SYSTEMS } from '../board/boardRanges.js';
 import { quoteText } from '../errors.js';
+import { CORRECTION_DEFAULTS } from './correctionDefaults.js';
 import { lineToNeutralCapacitorsCaution } from '../analysis/openNeutralWording.js';
 
 interface TargetWords {
@@ -184,6 +185,53 @@ export function leastStepWords(least: Omit<LeastSwitchedStep, 'ratio' | 'heldBac
   }, and ${trimmed(least.nameplateKvar)} kvar nameplate`;
 }
 
+/**
+ * What the every-step-in warning says of the other states: unknown (the steps were not given), none (no switched
+ * step: the one state), or how many other states the controller can reach and how many of them lie near too.
+ */
+export type OtherStepStates = 'unknown' | null | { readonly others: number; readonly othersNear: number };
+
+const otherStatesWords = (states: OtherStepStates): string =>
+  states === 'unknown'
+    ? STEP_STATES_WORDS
+    : states === null || states.others === 0
+      ? ''
+      : states.othersNear > 0
+        ? '. That is with every step in; states with fewer steps in lie near harmonic orders too (next warning)'
+        : `. That is with every step in; none of the ${states.others} other step state${states.others === 1 ? '' : 's'} the controller can reach lies within 10 % of a watched order`;
+
+/** A combination of outputs in, in words: "outputs 1 and 2", "output 3". */
+const outputsWords = (outputs: readonly number[]): string =>
+  outputs.length === 1 ? `output ${outputs[0]}` : `outputs ${outputs.slice(0, -1).join(', ')} and ${outputs.at(-1)}`;
+
+/** A state the controller can reach, by what is in: "with outputs 1 and 2 in", "with only the fixed part in". */
+export function stepStateInWords(st: Pick<StepStateOrders, 'outputsIn'>, fixedPart: StepStateResonance['fixedPart']): string {
+  const kept = fixedPart.reactors && fixedPart.capacitors ? 'the reactors and the fixed capacitors' : fixedPart.reactors ? 'the reactors' : fixedPart.capacitors ? 'the fixed part' : null;
+  if (!st.outputsIn.length) return `with only ${kept ?? 'the fixed part'} in`;
+  return `with ${kept ? `${kept} and ` : ''}${outputsWords(st.outputsIn)} in`;
+}
+
+/**
+ * The verdict's "but" where the supply resonance lies near a watched order with every step in or in another state
+ * the controller can reach (CorrectionVerification.resonanceNearHarmonic); empty where it does not.
+ */
+export function resonanceSummaryClause(
+  v: { readonly resonanceNearHarmonic: boolean; readonly resonanceNearOrders: readonly number[]; readonly resonanceStepStates: StepStateResonance | null },
+  /** 'and' where the summary already has its "but" (an overload). */
+  joined: 'but' | 'and' = 'but',
+): string {
+  if (!v.resonanceNearHarmonic) return '';
+  const partial = v.resonanceStepStates?.states.slice(1).filter((st) => st.nearOrders.length > 0) ?? [];
+  const orders = [...new Set([...v.resonanceNearOrders, ...partial.flatMap((st) => st.nearOrders)])].sort((a, b) => a - b);
+  const where = [...(v.resonanceNearOrders.length ? ['with every step in'] : []), ...(partial.length ? [`in ${partial.length} state${partial.length === 1 ? '' : 's'} with fewer steps in`] : [])];
+  const named = orders.map(ordinal);
+  const list = named.length === 1 ? `the ${named[0]} harmonic` : `the ${named.slice(0, -1).join(', ')} and ${named.at(-1)} harmonics`;
+  return `; ${joined} its supply resonance lies within 10 % of ${list} ${where.join(' and ')} (see the warnings)`;
+}
+
+/** At most this many states are named in a warning; the rest are counted (the step-state table lists them). */
+const NAMED_STATES = 4;
+
 export const warningText = {
   reactorsResized: (reactors: ResizingWords['reactors']) =>
     `the reactors were sized again beside the capacitors as built from units (${reactorChanges(reactors)} at nominal voltage): the build verified here has the re-sized reactors`,
@@ -203,17 +251,45 @@ export const warningText = {
     `at light load the fixed part makes line${phases.length > 1 ? 's' : ''} ${phases.join(', ')} lead (checked at the high end of the capacitance tolerance)`,
   voltageRise: (what: string, percent: number, limit: number) => `${what} raises the board voltage by about ${percent.toFixed(2)} %, above the ${f1(limit)} % flag level`,
   /** @param capacitance what resonates: the bank, the leading loads already on the board, or both */
-  lowResonance: (orders: readonly number[], capacitance: 'bank' | 'board' | 'both' = 'bank', near: readonly number[] = []) =>
+  lowResonance: (orders: readonly number[], capacitance: 'bank' | 'board' | 'both' = 'bank', near: readonly number[] = [], states: OtherStepStates = 'unknown') =>
     `${capacitance === 'bank' ? 'the bank' : capacitance === 'board' ? "the board's own leading loads (capacitance already in service)" : "the bank with the board's own leading loads"} and the supply inductance resonate near harmonic order${orders.length > 1 ? 's' : ''} ${orders.map((h) => h.toFixed(1)).join(' and ')}${near.length ? ` (within 10 % of the ${near.map(ordinal).join(' and the ')})` : ''}, estimated from the supply path's reactances and the capacitances: with harmonic-producing loads on the board this needs a harmonic study and probably a detuned bank${
-      capacitance === 'board' ? '' : STEP_STATES_WORDS
+      capacitance === 'board' ? '' : otherStatesWords(states)
     }`,
+  /**
+   * The states with fewer steps in whose resonance lies near a watched order: each named by what is in (and the
+   * combinations alike in capacitance), with its order; what to do about it, deferring to a study and licensed practice.
+   * @param allInNear true where the every-step-in state is near too (its own warning says so)
+   * @param scanned where the harmonic check of the same study scanned every step combination of the plain bank: whether it passed (the scan decides)
+   */
+  stepStateResonance: (
+    states: readonly Pick<StepStateOrders, 'outputsIn' | 'alike' | 'capacitorKvarAtNominalV' | 'resonancesNear' | 'nearOrders'>[],
+    fixedPart: StepStateResonance['fixedPart'],
+    allInNear: boolean,
+    scanned: { readonly passes: boolean } | null = null,
+    /** True where the board's own leading loads are counted with the bank (in every state). */
+    withBoardLoads = false,
+  ) => {
+    checkListArgument(states, 'states', 'the step states near a watched order (StepStateResonance.states)', (x) => typeof x === 'object' && x !== null && Array.isArray((x as StepStateOrders).outputsIn));
+    const named = states.slice(0, NAMED_STATES).map((st) => {
+      const alike = !st.alike.length
+        ? ''
+        : st.alike.length <= 3
+          ? ` (or ${st.alike.map((o) => o.join('+')).join(', ')}: the same capacitance)`
+          : ` (or any of ${st.alike.length} other combinations with the same capacitance)`;
+      return `${stepStateInWords(st, fixedPart)}${alike}, ${st.capacitorKvarAtNominalV.toFixed(1)} kvar, near ${st.resonancesNear.map((h) => h.toFixed(1)).join(' and ')} (the ${st.nearOrders.map(ordinal).join(' and the ')})`;
+    });
+    const more = states.length > NAMED_STATES ? `; and ${states.length - NAMED_STATES} more state${states.length - NAMED_STATES === 1 ? '' : 's'} (see the step-state table)` : '';
+    if (scanned)
+      return `the estimate from the supply path's reactances also puts the resonance near a harmonic order with fewer steps in: ${named.join('; ')}${more}; the harmonic check of this study scanned every step combination and ${scanned.passes ? 'passes the plain bank (the spectra are typical or entered ones: measure the real spectrum before installing)' : 'fails the plain bank (see the harmonic check)'}`;
+    return `${allInNear ? 'also ' : ''}with fewer steps in, ${withBoardLoads ? "the bank with the board's own leading loads" : 'the bank'} and the supply inductance resonate within 10 % of a harmonic order: ${named.join('; ')}${more}. The controller reaches these states as it follows the load: with harmonic-producing loads on the board this needs a harmonic study, and then detuning reactors on the steps, or a switching programme that never leaves the bank in ${states.length === 1 ? 'that combination' : 'those combinations'}, decided with that study by a licensed professional to the local codes`;
+  },
   /** The same resonance where the harmonic check scanned the plain bank in the same study: the estimate defers to the scan. */
   lowResonanceScanned: (orders: readonly number[], near: readonly number[], lowestPeak: number | null, passes: boolean) =>
     `the estimate from the supply path's reactances puts the resonance of the capacitance with the supply near harmonic order${orders.length > 1 ? 's' : ''} ${orders.map((h) => h.toFixed(1)).join(' and ')}${near.length ? ` (within 10 % of the ${near.map(ordinal).join(' and the ')})` : ''}; the harmonic check of this study ${lowestPeak === null ? 'found no resonance peak in its range' : `scanned its lowest peak at h = ${lowestPeak.toFixed(2)}`} and ${passes ? 'passes the plain bank: no order in the spectra entered lies near a peak. The spectra are typical or entered ones: measure the real spectrum of the board before installing, and again when harmonic-producing loads are added' : 'fails the plain bank (see the harmonic check)'}`,
   partialBalance: (negative: number, zero: number, reactors: readonly PhaseLabel[]) =>
     `the capacitor-only compensator meets the power-factor target but balances only partly (|I2|/|I1| = ${negative.toFixed(1)} %, |I0|/|I1| = ${zero.toFixed(1)} %)${reactors.length ? `; full balance needs reactors on ${reactors.join(', ')}` : ''}`,
   /** @param suggestedA the primary trivar would choose for that current (1.25 × it, next standard rating) */
-  ctBelowLineCurrent: (primaryA: number, basis: Pick<CtBasis, 'currentA' | 'sizedOn' | 'placeWords' | 'stepState'>, suggestedA: number) => {
+  ctBelowLineCurrent: (primaryA: number, basis: Pick<CtBasis, 'currentA' | 'sizedOn' | 'placeWords' | 'stepState'> & { readonly capacitance?: CtBasis['capacitance'] }, suggestedA: number) => {
     // One decimal where it shows the figure above the primary; two where one would print them equal.
     const lineA = Number(f1(basis.currentA)) > primaryA ? f1(basis.currentA) : basis.currentA.toFixed(2);
     const when =
@@ -224,7 +300,8 @@ export const warningText = {
           : basis.sizedOn === 'step-state' && basis.stepState
             ? ` on line ${basis.stepState.lineLabel} ${stepStateWords(basis.stepState)}`
             : ' after correction';
-    return `the CT primary (${primaryA} A) is below the largest line current (${lineA} A)${when} at ${basis.placeWords}: the CT runs past its rating and saturates, and the controller misreads the reactive current; raise controller.ctPrimaryA to at least ${Math.ceil(basis.currentA)} A (${suggestedA} A is the next standard rating at or above 1.25 × it)`;
+    const end = basis.capacitance && (basis.sizedOn === 'after' || basis.sizedOn === 'step-state') ? `, with the capacitors at the ${capacitanceEndWords(basis.capacitance.capacitanceFactor)} end of their tolerance` : '';
+    return `the CT primary (${primaryA} A) is below the largest line current (${lineA} A)${when} at ${basis.placeWords}${end}: the CT runs past its rating and saturates, and the controller misreads the reactive current; raise controller.ctPrimaryA to at least ${Math.ceil(basis.currentA)} A (${suggestedA} A is the next standard rating at or above 1.25 × it)`;
   },
   manySmallUnits: (w: {
     units: number;
@@ -665,13 +742,13 @@ const STATUS_SHORT: Record<string, string> = {
 };
 
 export const comparisonWording = {
-  rule: 'first an arrangement that meets the target across the capacitance tolerance, then at nominal capacitance, then one that meets it but overloads a conductor or the supply; among those the least cost (nameplate kvar + 2 kvar-equivalent per unit, a reactor counted at twice its kvar); costs within 5 % are equal and the lower losses decide',
+  rule: 'first an arrangement that meets the target across the capacitance tolerance, then at nominal capacitance, then one that meets it but whose supply resonance lies within 10 % of a harmonic order in a state its controller can reach, then one that meets it but overloads a conductor or the supply; among those the least cost (nameplate kvar + 2 kvar-equivalent per unit, a reactor counted at twice its kvar); costs within 5 % are equal and the lower losses decide',
   noneStudied: 'no arrangement could be studied with these settings',
   why: (
     name: string,
     status: string,
     f: { cost: number; lossesKW: number },
-    others: readonly { name: string; status: string; cost: number; lossesKW: number; overloads: boolean; withheld?: string | null }[],
+    others: readonly { name: string; status: string; cost: number; lossesKW: number; overloads: boolean; withheld?: string | null; resonates?: boolean }[],
     tieOnCost: boolean,
   ) => {
     // Nothing bought (no unit, no reactor) has no cost to quote: say so in words instead of "cost 0.0".
@@ -694,7 +771,9 @@ export const comparisonWording = {
         ? `${o.name} ${STATUS_SHORT[o.status]} but overloads what feeds it${nothingAdded(o.cost) ? '' : ` (cost ${o.cost.toFixed(1)})`}`
         : o.withheld
           ? `${o.name}: ${o.withheld}`
-        : o.status !== status
+          : o.resonates
+            ? `${o.name} ${STATUS_SHORT[o.status]} but resonates with the supply near a harmonic order in a step state (cost ${o.cost.toFixed(1)})`
+            : o.status !== status
           ? `${o.name} ${STATUS_SHORT[o.status]}`
           : nothingAdded(o.cost)
             ? `${o.name} also adds nothing`
@@ -702,6 +781,9 @@ export const comparisonWording = {
     );
     return rest.length ? `${head}; ${rest.join('; ')}` : head;
   },
+  /** Said where the recommended build resonates near a harmonic order in a step state: none meets the target clear of one. */
+  resonates: (name: string) =>
+    `note: no arrangement meets the target with its supply resonance clear of the watched harmonic orders in every step state; the recommended ${name} needs the harmonic study its warnings name`,
   /** What a compared arrangement overloads, said beside the recommendation. */
   overloads: (name: string, recommended: boolean, messages: readonly string[]) =>
     `${recommended ? 'note: no arrangement meets the target without an overload; with the recommended' : 'with the'} ${name} in, ${messages.join('; ')}`,
@@ -750,17 +832,90 @@ export function stepStateWords(st: Pick<StepStateCurrent, 'outputsIn' | 'outputs
 }
 
 /** The current a controller's CT is chosen on or checked against, in words (CtBasis.currentWords). */
-export function ctCurrentWords(b: Pick<CtBasis, 'sizedOn' | 'currentA' | 'largestLineCurrentA' | 'afterFrom' | 'stepState'>): string {
+export function ctCurrentWords(b: Pick<CtBasis, 'sizedOn' | 'currentA' | 'largestLineCurrentA' | 'afterFrom' | 'stepState' | 'capacitance'>): string {
   if (b.sizedOn === 'given' || b.largestLineCurrentA === null) return `${f1(b.currentA)} A, the line current given (lineCurrentA)`;
   const sized = b.afterFrom === 'as-sized' ? ', as sized' : '';
+  const c = b.capacitance ?? null;
+  // The tolerance end the figure is read at, where it was: the one that draws more where the CT reads.
+  const atEnd = c === null ? '' : `, with the capacitors at the ${capacitanceEndWords(c.capacitanceFactor)} end of their tolerance, the end that draws more there`;
+  const afterAtEnd = c === null ? b.largestLineCurrentA.after : c.afterA[c.end];
   // A state of the steps between the ends draws more than either: it is the figure, and the state is named.
-  if (b.sizedOn === 'step-state' && b.stepState)
-    return `${f1(b.currentA)} A on line ${b.stepState.lineLabel} ${stepStateWords(b.stepState)}, the largest line current there in any state of the steps${
+  if (b.sizedOn === 'step-state' && b.stepState) {
+    // A state with no capacitor in (reactors alone) draws the same at either end: no end to name for it.
+    const capacitorsIn = b.stepState.outputsIn.length > 0 || b.stepState.fixedPart.capacitors;
+    return `${f1(b.currentA)} A on line ${b.stepState.lineLabel} ${stepStateWords(b.stepState)}${capacitorsIn ? atEnd : ''}, the largest line current there in any state of the steps${
       b.stepState.solved ? '' : ' (by superposition of the steps\' currents: that state did not solve)'
-    } (${f1(b.largestLineCurrentA.before)} A before correction, ${f1(b.largestLineCurrentA.after)} A with every step in${sized})`;
+    } (${f1(b.largestLineCurrentA.before)} A before correction, ${f1(afterAtEnd)} A with every step in${c === null ? '' : ` at ${capacitanceEndWords(c.capacitanceFactor)} capacitance`}${sized})`;
+  }
   // Two figures that print alike are one: "after correction (20.1 A before)" would read as a contradiction.
-  if (f1(b.largestLineCurrentA.before) === f1(b.largestLineCurrentA.after)) return `${f1(b.currentA)} A, the largest line current there before and after correction${sized}`;
-  return b.sizedOn === 'before'
-    ? `${f1(b.currentA)} A, the largest line current there before correction (${f1(b.largestLineCurrentA.after)} A after${sized})`
-    : `${f1(b.currentA)} A, the largest line current there after correction${sized} (${f1(b.largestLineCurrentA.before)} A before)`;
+  if (f1(b.largestLineCurrentA.before) === f1(afterAtEnd) && c === null) return `${f1(b.currentA)} A, the largest line current there before and after correction${sized}`;
+  if (b.sizedOn === 'before') return `${f1(b.currentA)} A, the largest line current there before correction (${f1(afterAtEnd)} A after${c === null ? '' : `, capacitance at ${capacitanceEndWords(c.capacitanceFactor)}`}${sized})`;
+  const nominal = c === null ? '' : `${f1(b.largestLineCurrentA.after)} A at nominal capacitance; `;
+  return `${f1(b.currentA)} A, the largest line current there after correction${sized}${atEnd} (${nominal}${f1(b.largestLineCurrentA.before)} A before)`;
+}
+
+/** A capacitance tolerance end in words: "+10 %", "−5 %". */
+export const capacitanceEndWords = (factor: number): string => `${factor >= 1 ? '+' : '−'}${Number((Math.abs(factor - 1) * 100).toFixed(2))} %`;
+
+/** At most this many rows in a step-state table: the states near a watched order first, then the others as room allows. */
+const TABLE_STATES = 12;
+
+/** The supply resonance of every step state as a small table (`trivar correct`'s checks, the report's harmonics section). */
+export interface StepStateTable {
+  readonly header: readonly string[];
+  readonly rows: readonly (readonly string[])[];
+  /** What the rows are of, and the states left out. */
+  readonly note: string;
+}
+
+/** A combination of outputs in, for a table cell: "1+2", "1+2 or 1+3", "1+2 (+4 alike)", "fixed part only". */
+function stepsInCell(st: StepStateOrders, every: boolean): string {
+  if (!st.outputsIn.length) return 'fixed part only';
+  const own = st.outputsIn.join('+');
+  if (every) return `${own} (every step)`;
+  return st.alike.length === 0 ? own : st.alike.length <= 2 ? [own, ...st.alike.map((o) => o.join('+'))].join(' or ') : `${own} (+${st.alike.length} alike)`;
+}
+
+/** The near resonances of a state, each with the watched order it lies near: "11th", "9th at h 9.31" where it is not the lowest. */
+function nearCell(st: StepStateOrders): string {
+  if (!st.nearOrders.length) return '-';
+  return st.resonancesNear
+    .map((h) => {
+      const near = st.nearOrders.filter((w) => Math.abs(h - w) <= CORRECTION_DEFAULTS.resonanceNearFraction * w).map(ordinal).join(', ');
+      return h === st.lowestOrder ? near : `${near} at h ${h.toFixed(2)}`;
+    })
+    .join('; ');
+}
+
+/**
+ * The step states where any lies near a watched order: steps in, their kvar at nominal voltage, the lowest order
+ * and the watched orders near. Every state near is a row; the others fill up to TABLE_STATES, most capacitance first.
+ */
+export function stepStateTable(r: StepStateResonance): StepStateTable {
+  checkObjectArgument(r, 'r', "a verification's step-state resonance (resonanceStepStates)", ['states', 'combinations', 'fixedPart', 'nearStates']);
+  const near = r.states.filter((st, k) => k === 0 || st.nearOrders.length > 0);
+  const room = Math.max(0, TABLE_STATES - near.length);
+  const others = r.states.filter((st, k) => k > 0 && st.nearOrders.length === 0);
+  const shown = new Set([...near, ...others.slice(0, room)]);
+  const rows = r.states.filter((st) => shown.has(st)).map((st) => [stepsInCell(st, st === r.states[0]), st.capacitorKvarAtNominalV.toFixed(1), st.lowestOrder === null ? '-' : st.lowestOrder.toFixed(2), nearCell(st)]);
+  const left = others.slice(room);
+  const kept = r.fixedPart.reactors || r.fixedPart.capacitors ? ' (the fixed part always in)' : '';
+  const leftWords = left.length
+    ? `; ${left.length} more state${left.length === 1 ? '' : 's'}, none near, lowest order ${Math.min(...left.map((s) => s.lowestOrder ?? Infinity)).toFixed(2)} to ${Math.max(...left.map((s) => s.lowestOrder ?? 0)).toFixed(2)}`
+    : '';
+  return {
+    header: ['steps in', 'kvar in', 'lowest h', 'near'],
+    rows,
+    note: `controller outputs in${kept}; kvar of the bank's capacitors in, at nominal voltage; near: the harmonic orders within 10 % of an order of that state${leftWords}`,
+  };
+}
+
+/** Every step state in one line, where none lies near a watched order: the range of their lowest orders. */
+export function stepStatesClearWords(r: StepStateResonance): string {
+  checkObjectArgument(r, 'r', "a verification's step-state resonance (resonanceStepStates)", ['states', 'combinations', 'fixedPart', 'nearStates']);
+  const withOrder = r.states.filter((s) => s.lowestOrder !== null);
+  const top = withOrder.reduce((a, b) => (b.lowestOrder! > a.lowestOrder! ? b : a), withOrder[0]!);
+  const distinct = r.states.length === r.combinations ? '' : `, ${r.states.length} distinct`;
+  const topWords = top === r.states[0] ? '' : ` to ${top.lowestOrder!.toFixed(2)} (${stepStateInWords(top, r.fixedPart)})`;
+  return `every step state the controller can reach (${r.combinations} combination${r.combinations === 1 ? '' : 's'} of the switched outputs${distinct}): lowest order ${r.states[0]!.lowestOrder?.toFixed(2) ?? '-'} with every step in${topWords}; none within 10 % of a watched harmonic order`;
 }

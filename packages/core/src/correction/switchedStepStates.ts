@@ -101,12 +101,17 @@ export interface StepStateInputs {
   readonly steps: readonly BankStep[];
   readonly equipment: readonly EquipmentGroup[];
   /** The equipment's board with everything in (design state): its voltages. */
-  readonly equipped: BoardResult;
+  readonly equipped: Pick<BoardResult, 'phases'>;
   /** Where the CT reads, with everything in: its line currents. */
-  readonly atCt: BoardResult;
+  readonly atCt: Pick<BoardResult, 'phases'>;
   readonly frequencyHz: number;
+  /**
+   * The capacitors' capacitance as a share of nominal (a tolerance end): `equipped` and `atCt` are solved with
+   * it, each step's current is scaled by it, and `solveAtCt` must apply it to the equipment it is given. @defaultValue 1
+   */
+  readonly capacitanceFactor?: number;
   /** Solves the board with the equipment given and reads the CT's point. */
-  readonly solveAtCt: (equipment: readonly EquipmentGroup[]) => BoardResult;
+  readonly solveAtCt: (equipment: readonly EquipmentGroup[]) => Pick<BoardResult, 'phases'>;
 }
 
 /**
@@ -125,7 +130,8 @@ export function worstStepState(input: StepStateInputs): WorstStepState | null {
   const omega = 2 * Math.PI * input.frequencyHz;
   const phases = input.atCt.phases.map((p) => p.phase);
   const voltages = new Map<PhaseId, ComplexValue>(input.equipped.phases.map((p) => [p.phase, p.voltage]));
-  const stepCurrents = switched.map((s) => stepLineCurrents(s, phases, voltages, omega));
+  const factor = input.capacitanceFactor ?? 1;
+  const stepCurrents = switched.map((s) => stepLineCurrents(s, phases, voltages, omega).map((i) => ({ re: i.re * factor, im: i.im * factor })));
   const base = input.atCt.phases.map((p, k) => stepCurrents.reduce((c, d) => sub(c, d[k]!), p.current as ComplexValue));
   const worst = largestSwitching(base, stepCurrents);
   // Every step in is the design state; every step out without a fixed part is the board as it was.
@@ -146,7 +152,7 @@ export function worstStepState(input: StepStateInputs): WorstStepState | null {
  * The largest line current of a state solved, or null where it has no solution: the CT's check then
  * takes the superposition's figure rather than end a study whose design state solved.
  */
-function solvedLargest(solve: () => BoardResult): { phase: PhaseId; currentA: number } | null {
+function solvedLargest(solve: () => Pick<BoardResult, 'phases'>): { phase: PhaseId; currentA: number } | null {
   try {
     const largest = solve().phases.reduce((a, b) => (b.current.magnitude > a.current.magnitude ? b : a));
     return { phase: largest.phase, currentA: largest.current.magnitude };

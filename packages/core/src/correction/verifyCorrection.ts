@@ -18,7 +18,7 @@ import { CORRECTION_DEFAULTS, toleranceFractions } from './correctionDefaults.js
 import { judgeTarget, lineTanBounds, resolveTarget, TARGET_SLACK } from './correctionTarget.js';
 import { addCorrectionEquipment, type EquipmentGroup } from './equipment.js';
 import { scaleBoardLoads } from './scaleBoardLoads.js';
-import type { BranchSizing, CorrectionVerification, CorrectionWarning, LightLoadCheck, MeteringReadings, ResonanceCapacitance, VoltageRise } from './correctionResult.js';
+import type { BankStep, BranchSizing, CorrectionVerification, CorrectionWarning, LightLoadCheck, MeteringReadings, ResonanceCapacitance, VoltageRise } from './correctionResult.js';
 import { meteringPlace, solveMeter } from './meteringPoint.js';
 import { warningText } from './correctionWording.js';
 import { labellerOf } from '../board/conventions/phaseNames.js';
@@ -30,6 +30,7 @@ import { overloadsCaused } from './overloadsCaused.js';
 import { assertBoardModel } from '../board/modelGuards.js';
 import { judgedNominalOf } from '../board/nominalVoltages.js';
 import { WARNING_THRESHOLDS } from '../analysis/boardWarnings.js';
+import { distinctOrders, resonanceNearOrders, stepStateResonance, watchedOrdersNear } from './stepStateResonance.js';
 
 export interface VerifyCorrectionOptions {
   /** The equipment to add, e.g. `selection.equipment` or `sizing.equipment`. */
@@ -46,6 +47,11 @@ export interface VerifyCorrectionOptions {
   readonly voltageRiseLimitPercent?: number;
   /** Passed to the board solver. @defaultValue solver defaults */
   readonly solve?: SolveOptions;
+  /**
+   * The bank's steps as built (`selection.steps`), matching `equipment`: the supply resonance is then estimated
+   * in every state the controller can reach, not only with every step in. @defaultValue none (every step in only)
+   */
+  readonly steps?: readonly BankStep[];
 }
 
 const verifyOptionsSchema = z.strictObject({
@@ -56,17 +62,11 @@ const verifyOptionsSchema = z.strictObject({
   capacitanceTolerance: z.strictObject({ minusPercent: z.number().min(0).max(50).optional(), plusPercent: z.number().min(0).max(50).optional() }).optional(),
   voltageRiseLimitPercent: z.number().positive().max(100).optional(),
   solve: solveOptionsSchema.optional(),
+  steps: z.custom<readonly BankStep[]>((v) => Array.isArray(v) && v.every((s) => typeof s === 'object' && s !== null && Array.isArray((s as BankStep).branches))).optional(),
 });
-
-/** The watched orders (CORRECTION_DEFAULTS.resonanceWatchedOrders, with why) that a resonance order lies near. */
-export const resonanceNearOrders = (order: number): number[] =>
-  CORRECTION_DEFAULTS.resonanceWatchedOrders.filter((h) => Math.abs(order - h) <= CORRECTION_DEFAULTS.resonanceNearFraction * h);
 
 /** Two resonance orders closer than this fraction are one for the words (half a percent, well inside any scan's resolution). */
 const SAME_ORDER = 0.005;
-
-/** `orders` (ascending) without those within SAME_ORDER of the one before. */
-const distinctOrders = (orders: readonly number[]): number[] => orders.filter((h, k) => k === 0 || h > orders[k - 1]! * (1 + SAME_ORDER));
 
 /** The branches of the loads added to `board` to make `equipped` (the equipment), every part as `equipped` has it. */
 const addedBranches = (board: Board, equipped: Board): LoadBranch[] => equipped.loads.slice(board.loads.length).flatMap((l) => l.branches);
@@ -82,15 +82,16 @@ const addedBranches = (board: Board, equipped: Board): LoadBranch[] => equipped.
  * for a single loop or a balanced delta bank they are h = √(X_C/X_path), also behind a cable feeder whose
  * R is not small. The kvar figures are at the solved voltages, as delivered.
  */
-function resonanceCapacitance(board: Board, corrected: Board, branches: readonly BranchSizing[], after: BoardResult): ResonanceCapacitance {
+function resonanceCapacitance(board: Board, corrected: Board, branches: readonly BranchSizing[], after: BoardResult): ResonanceCapacitance & { boardCapacitors: LoadBranch[] } {
   const addedKvar = branches.reduce((s, b) => s + (b.element === 'capacitor' ? b.kvarAtAppliedV : 0), 0);
   const reactorKvar = branches.reduce((s, b) => s + (b.element === 'reactor' ? -b.kvarAtAppliedV : 0), 0);
   const leading = after.loads.filter((l) => l.origin === 'board' && l.kvar < 0);
   const onBoardKvar = leading.reduce((s, l) => s - l.kvar, 0);
   const leadingNames = new Set(leading.map((l) => l.name));
-  const capacitors = [...corrected.loads.filter((l) => l.origin === 'board' && leadingNames.has(l.name)).flatMap((l) => l.branches), ...addedBranches(board, corrected)];
-  const path = capacitorPathReactance(board, capacitors);
+  const boardCapacitors = corrected.loads.filter((l) => l.origin === 'board' && leadingNames.has(l.name)).flatMap((l) => l.branches);
+  const path = capacitorPathReactance(board, [...boardCapacitors, ...addedBranches(board, corrected)]);
   return {
+    boardCapacitors,
     addedKvar,
     onBoardKvar,
     loadsOnBoard: leading.map((l) => l.name),
@@ -282,14 +283,21 @@ export function verifyCorrection(board: Board, options: VerifyCorrectionOptions)
   const rise = voltageRise(board, addedBranches(board, corrected), capacitorKvar, before, after, riseLimit);
   if (rise.flagged) warn('voltage-rise', warningText.voltageRise('the bank at the design load', Math.max(rise.estimatePercent ?? -Infinity, rise.solvedPercent), riseLimit), rise.solvedPercent, riseLimit);
   const ssc = boardShortCircuitVA(board);
-  const resonance = resonanceCapacitance(board, corrected, branches, after);
+  const { boardCapacitors, ...resonance } = resonanceCapacitance(board, corrected, branches, after);
   // Orders that print alike (a balanced bank's two sequence modes) are one order for the words.
   const orders = resonance.totalKvar > 0 ? distinctOrders(resonance.orders) : [];
   const resonanceOrder = orders[0] ?? null;
-  const nearOrders = [...new Set(orders.flatMap(resonanceNearOrders))].sort((a, b) => a - b);
+  const nearOrders = watchedOrdersNear(orders);
   const nearResonances = orders.filter((h) => resonanceNearOrders(h).length > 0);
+  // Every state the controller can reach, where the steps are known and the every-step-in state has an estimate.
+  const stepStates = opts.steps && resonanceOrder !== null && resonance.addedKvar > 0 ? stepStateResonance({ board, equipment, steps: opts.steps, boardCapacitors }) : null;
+  // The states with fewer steps in (the first is every step in).
+  const nearPartial = stepStates?.states.slice(1).filter((st) => st.nearOrders.length > 0) ?? [];
+  const statesChecked = opts.steps === undefined ? 'unknown' : stepStates === null ? null : { others: stepStates.states.length - 1, othersNear: nearPartial.length };
   if (nearResonances.length)
-    warn('resonance', warningText.lowResonance(nearResonances, resonance.onBoardKvar > 0 ? (resonance.addedKvar > 0 ? 'both' : 'board') : 'bank', nearOrders), nearResonances[0]!, null);
+    warn('resonance', warningText.lowResonance(nearResonances, resonance.onBoardKvar > 0 ? (resonance.addedKvar > 0 ? 'both' : 'board') : 'bank', nearOrders, statesChecked), nearResonances[0]!, null);
+  if (stepStates && nearPartial.length)
+    warn('resonance-step-state', warningText.stepStateResonance(nearPartial, stepStates.fixedPart, nearResonances.length > 0, null, resonance.onBoardKvar > 0), nearPartial[0]!.lowestOrder, null);
   if (ssc === null && capacitorKvar > 0) warn('ideal-source', warningText.idealSource);
   const overloads = overloadsCaused(before, after);
   for (const o of overloads) warn('overload-caused', warningText.overloadCaused(o.message), o.value, o.threshold);
@@ -391,6 +399,8 @@ export function verifyCorrection(board: Board, options: VerifyCorrectionOptions)
     resonanceOrders: orders,
     resonanceNearOrders: nearOrders,
     resonanceCapacitance: resonance,
+    resonanceStepStates: stepStates,
+    resonanceNearHarmonic: nearResonances.length > 0 || nearPartial.length > 0,
     lightLoad,
     overloadsCaused: overloads.map((o) => ({ code: o.code, message: o.message })),
     warnings,

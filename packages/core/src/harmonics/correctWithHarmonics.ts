@@ -23,8 +23,8 @@ import { parseCorrectionSpec } from '../correction/validateCorrectionSpec.js';
 import { defaultPractice } from '../correction/selectBankUnits.js';
 import { TYPICAL_CATALOGUES, catalogueUnitOf } from '../correction/unitCatalogues.js';
 import type { BankStep, CorrectionReport, CorrectionWarning } from '../correction/correctionResult.js';
-import { arrangementNames, CORRECTION_CAUTIONS, reportSummary, selectionWording, warningText } from '../correction/correctionWording.js';
-import { resonanceNearOrders } from '../correction/verifyCorrection.js';
+import { arrangementNames, CORRECTION_CAUTIONS, reportSummary, resonanceSummaryClause, selectionWording, warningText } from '../correction/correctionWording.js';
+import { resonanceNearOrders } from '../correction/stepStateResonance.js';
 import { CORRECTION_DEFAULTS } from '../correction/correctionDefaults.js';
 import type { CapacitorUnitSpec } from '../correction/correctionSpec.js';
 import { resolveHarmonicModel, type BankModel, type HarmonicModel } from './harmonicModel.js';
@@ -182,12 +182,20 @@ function asDetuned(report: CorrectionReport, p: number, percent: number, plainSe
     report.status === 'already-meets-target' || report.status === 'no-suitable-units' || report.status === 'nothing-to-build'
       ? reportSummary[report.status](what)
       : reportSummary[report.status](what, selection.deliveredKvar, nameplate);
-  const withoutEstimate = (ws: readonly CorrectionWarning[]) => ws.filter((w) => w.code !== 'resonance');
+  const withoutEstimate = (ws: readonly CorrectionWarning[]) => ws.filter((w) => w.code !== 'resonance' && w.code !== 'resonance-step-state');
   return {
     ...report,
     summary,
     warnings: withoutEstimate(report.warnings),
-    verification: { ...report.verification, resonanceOrder: null, resonanceOrders: [], resonanceNearOrders: [], warnings: withoutEstimate(report.verification.warnings) },
+    verification: {
+      ...report.verification,
+      resonanceOrder: null,
+      resonanceOrders: [],
+      resonanceNearOrders: [],
+      resonanceStepStates: null,
+      resonanceNearHarmonic: false,
+      warnings: withoutEstimate(report.verification.warnings),
+    },
     selection: {
       ...selection,
       ...(plainSelection ? { catalogue: plainSelection.catalogue, catalogueTitle: plainSelection.catalogueTitle, catalogueNote: plainSelection.catalogueNote } : {}),
@@ -433,13 +441,15 @@ export function correctWithBankCheck<Check>(
   const failsCheck = chosen === null && shown.report.selection !== null && (shown.report.selection.units ?? 0) > 0;
   const failure = `no variant passes the harmonic check (${runs.map((v) => `${v.summary.name}: ${why(v)}`).join(' | ')})`;
   const warnings = shown === plain ? deferredToScan(plain) : shown.report.warnings;
+  // The scan of every step combination decides where the plain bank is shown: the estimate's "but" gives way to it.
+  const scannedSummary = shown === plain ? shown.report.summary.replace(resonanceSummaryClause(shown.report.verification, shown.report.verification.overloadsCaused.length ? 'and' : 'but'), '') : shown.report.summary;
   return {
     ...shown.report,
-    summary: failsCheck ? `${shown.report.summary}; but it fails the harmonic check: ${failure}` : shown.report.summary,
+    summary: failsCheck ? `${scannedSummary}; but it fails the harmonic check: ${failure}` : scannedSummary,
     warnings: failsCheck
       ? [...warnings, { code: 'harmonic-check-failed', message: `${failure}: do not install it as built; a tuned filter or a specialist harmonic study is needed`, path: null, value: null, threshold: null }]
       : warnings,
-    verification: shown === plain ? { ...shown.report.verification, warnings: deferredToScan(plain, shown.report.verification.warnings) } : shown.report.verification,
+    verification: shown === plain ? { ...shown.report.verification, resonanceNearHarmonic: false, warnings: deferredToScan(plain, shown.report.verification.warnings) } : shown.report.verification,
     cautions: shown.report.cautions.map((c) => (c === HARMONICS_NOT_CHECKED ? harmonicsChecked(wording.file) : c)),
     harmonics: {
       summary,
@@ -459,8 +469,14 @@ export function correctWithBankCheck<Check>(
 function deferredToScan<Check>(plain: VariantRun<Check>, warnings: readonly CorrectionWarning[] = plain.report.warnings): CorrectionWarning[] {
   const v = plain.report.verification;
   const near = v.resonanceOrders.filter((h) => resonanceNearOrders(h).length > 0);
+  const states = v.resonanceStepStates;
+  const nearPartial = states?.states.slice(1).filter((st) => st.nearOrders.length > 0) ?? [];
   return warnings.map((w) =>
-    w.code === 'resonance' && near.length ? { ...w, message: warningText.lowResonanceScanned(near, v.resonanceNearOrders, plain.summary.lowestResonanceOrder, plain.summary.passes) } : w,
+    w.code === 'resonance' && near.length
+      ? { ...w, message: warningText.lowResonanceScanned(near, v.resonanceNearOrders, plain.summary.lowestResonanceOrder, plain.summary.passes) }
+      : w.code === 'resonance-step-state' && states && nearPartial.length
+        ? { ...w, message: warningText.stepStateResonance(nearPartial, states.fixedPart, near.length > 0, { passes: plain.summary.passes }, v.resonanceCapacitance.onBoardKvar > 0) }
+        : w,
   );
 }
 

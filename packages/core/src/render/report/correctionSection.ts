@@ -7,7 +7,7 @@ import type { ControllerSettings, CorrectionReport } from '../../correction/corr
 import type { CorrectionComparison } from '../../correction/compareCorrections.js';
 import type { HarmonicCorrectionReport } from '../../harmonics/correctWithHarmonics.js';
 import { correctionComparisonBlocks } from './correctionComparisonBlocks.js';
-import { arrangementDescriptions, arrangementNames, meteringPointWords } from '../../correction/correctionWording.js';
+import { arrangementDescriptions, arrangementNames, meteringPointWords, stepStatesClearWords, stepStateTable } from '../../correction/correctionWording.js';
 import { fixed } from '../svgText.js';
 import { exportingLinesNote, isExportCurrentA, linePfText } from '../powerFactorText.js';
 import { renderPhasorDiagram } from '../renderPhasorDiagram.js';
@@ -244,10 +244,10 @@ export function correctionSection(report: CorrectionReport, comparison: Correcti
 }
 
 /** Qc as worked: the capacitors added and the leading loads already on the board; QL the reactors added. */
-function capacitanceWords(c: CorrectionReport['verification']['resonanceCapacitance']): string {
+function capacitanceWords(c: CorrectionReport['verification']['resonanceCapacitance'], statesBelow: boolean): string {
   const parts = [
-    // Worked with every step in: fewer steps in put less capacitance on and raise the orders.
-    ...(c.addedKvar > 0 ? [`${fixed(c.addedKvar, 1)} kvar added, every step in (with fewer steps in, the orders lie higher)`] : []),
+    // Worked with every step in: fewer steps in put less capacitance on and raise the orders (each state below, where known).
+    ...(c.addedKvar > 0 ? [`${fixed(c.addedKvar, 1)} kvar added, every step in (${statesBelow ? 'each step state below' : 'with fewer steps in, the orders lie higher'})`] : []),
     ...(c.onBoardKvar > 0 ? [`${fixed(c.onBoardKvar, 1)} kvar of leading loads already on the board (${c.loadsOnBoard.join(', ')})`] : []),
   ];
   return `${parts.join(' + ')}${c.reactorKvar > 0 ? `; reactors added ${fixed(c.reactorKvar, 1)} kvar` : ''}`;
@@ -286,7 +286,7 @@ export function resonanceSection(report: CorrectionReport): ReportSection | null
         kind: 'facts',
         items: [
           ['Short-circuit power at the board', sc === null ? '—' : `${fixed(sc, 0)} kVA`],
-          ['Capacitive output considered', capacitanceWords(report.verification.resonanceCapacitance)],
+          ['Capacitive output considered', capacitanceWords(report.verification.resonanceCapacitance, report.verification.resonanceStepStates !== null)],
           ['Reactance of the supply path', c.supplyReactanceOhm === null ? '—' : `${pathReactanceWords(report)} (S_sc,X = ${fixed(c.reactanceShortCircuitKVA ?? 0, 0)} kVA)`],
           [
             `Parallel resonance with the supply, h = ${c.lowestBelowSingleNode ? `the lowest order of the path’s reactances with the capacitances${c.unequalCurrents ? '' : ', the lines together against the neutral'}` : c.reactorKvar > 0 ? '√((Ssc,X + QL)/Qc)' : '√(Xc/Xpath)'}`,
@@ -298,7 +298,36 @@ export function resonanceSection(report: CorrectionReport): ReportSection | null
         ? scanned
           ? { kind: 'list', tone: 'warning', items: [`The estimate lies within ${fixed(100 * band, 0)} % of harmonic order ${near.join(', ')}; the harmonic check of this report scanned the bank and decides: ${scanned.summary}.`] }
           : { kind: 'list', tone: 'warning', items: [`The resonance lies within ${fixed(100 * band, 0)} % of harmonic order ${near.join(', ')}, which common non-linear loads produce: a harmonic study and detuning reactors are strongly advised.`] }
-        : { kind: 'paragraph', text: `The resonance is not within ${fixed(100 * band, 0)} % of orders ${watched.join(', ')}. This is an estimate from the supply path's reactance only (its resistance damps the peak but hardly moves it; the classic √(Ssc/Qc) with Ssc from |Z| assumes X ≫ R); it does not replace a harmonic study of the board.` },
+        : { kind: 'paragraph', text: `With every step in, the resonance is not within ${fixed(100 * band, 0)} % of orders ${watched.join(', ')}. This is an estimate from the supply path's reactance only (its resistance damps the peak but hardly moves it; the classic √(Ssc/Qc) with Ssc from |Z| assumes X ≫ R); it does not replace a harmonic study of the board.` },
+      ...stepStateBlocks(report, scanned),
     ],
   };
 }
+
+/**
+ * The supply resonance in every step state the controller can reach: one paragraph where none lies near a
+ * watched order, else the table of states and a warning naming them (or, where the harmonic check scanned
+ * every step combination in the same study, what it decided).
+ */
+function stepStateBlocks(report: CorrectionReport, scanned: { summary: string } | null): ReportBlock[] {
+  const r = report.verification.resonanceStepStates;
+  if (!r) return [];
+  if (r.nearStates === 0) return [{ kind: 'paragraph', text: `${upperFirst(stepStatesClearWords(r))}.` }];
+  const t = stepStateTable(r);
+  const partial = r.states.slice(1).filter((st) => st.nearOrders.length > 0).length;
+  const table: ReportBlock = {
+    kind: 'table',
+    caption: 'Supply resonance in each step state the controller can reach',
+    columns: t.header.map((label, k) => (k === 0 || k === 3 ? { label } : { label, align: 'right' as const })),
+    rows: t.rows,
+    note: t.note,
+  };
+  if (!partial) return [table];
+  const states = `${partial} state${partial === 1 ? '' : 's'} put${partial === 1 ? 's' : ''}`;
+  const words = scanned
+    ? `With fewer steps in, ${states} an order within 10 % of a harmonic order; the harmonic check of this report scanned every step combination and decides: ${scanned.summary}.`
+    : `With fewer steps in, ${states} an order within 10 % of a harmonic order, and the controller reaches ${partial === 1 ? 'it' : 'them'} as it follows the load: a harmonic study, then detuning reactors or a switching programme that avoids ${partial === 1 ? 'that combination' : 'those combinations'}, decided with a licensed professional to the local codes.`;
+  return [table, { kind: 'list', tone: 'warning', items: [words] }];
+}
+
+const upperFirst = (text: string): string => text.charAt(0).toUpperCase() + text.slice(1);

@@ -1,0 +1,47 @@
+/**
+ * The verdict and the ranking weigh a supply resonance near a harmonic order in any state the controller can
+ * reach, as the warnings say it: a build that resonates there is not recommended over one that meets the target
+ * clear of one, whatever it costs, and a recommended build that resonates is said to. Hillside workshop (an
+ * invented example): every arrangement resonates near a watched order in some state; one is taken clear here to
+ * see the rule choose it.
+ */
+import { describe, expect, it } from 'vitest';
+import { readFileSync } from 'node:fs';
+import { compareCorrections, normaliseBoard, parseBoard, readBoardText } from '@trivar/core';
+import { recommendArrangement, type ArrangementOutcome } from '../../packages/core/src/correction/compareCorrections.js';
+
+const { correction: _study, ...spec } = readBoardText(readFileSync('examples/hillside-workshop.yaml', 'utf8')) as Record<string, unknown>;
+const comparison = compareCorrections(normaliseBoard(parseBoard(spec)), {});
+const clearOf = (o: ArrangementOutcome, clear: boolean): ArrangementOutcome =>
+  o.report ? { ...o, report: { ...o.report, verification: { ...o.report.verification, resonanceNearHarmonic: !clear } } } : o;
+
+describe('resonance near a harmonic order in a reachable step state, in the ranking', () => {
+  it('hillside workshop: every arrangement resonates near one, so the cheapest that meets the target is recommended, with a note', () => {
+    const near = comparison.outcomes.filter((o) => o.report?.verification.resonanceNearHarmonic);
+    expect(near.map((o) => o.arrangement).sort()).toEqual(['balancing-compensator', 'delta-bank', 'star-bank']);
+    // Each of them has a warning that says so, and the flag is exactly "a resonance warning was given".
+    for (const o of comparison.outcomes) {
+      const codes = o.report!.verification.warnings.map((w) => w.code);
+      expect(o.report!.verification.resonanceNearHarmonic).toBe(codes.includes('resonance') || codes.includes('resonance-step-state'));
+    }
+    expect(comparison.recommended).toBe('delta-bank');
+    expect(comparison.why).toContain('note: no arrangement meets the target with its supply resonance clear of the watched harmonic orders in every step state; the recommended delta bank needs the harmonic study its warnings name');
+    expect(comparison.why).toContain('star bank meets the target across the capacitance tolerance but resonates with the supply near a harmonic order in a step state (cost 18.3)');
+  });
+
+  it('a dearer star bank clear of every watched order is recommended over the cheaper delta bank that resonates', () => {
+    const outcomes = comparison.outcomes.map((o) => clearOf(o, o.arrangement === 'star-bank'));
+    const cost = (a: string) => outcomes.find((o) => o.arrangement === a)!.figures!.cost;
+    expect(cost('star-bank')).toBeGreaterThan(cost('delta-bank'));
+    const r = recommendArrangement(outcomes);
+    expect(r.recommended).toBe('star-bank');
+    expect(r.meetsTarget).toBe(true);
+    expect(r.why).toMatch(/^star bank: meets the target across the capacitance tolerance at the least cost \(cost 18\.3\); delta bank meets the target across the capacitance tolerance but resonates with the supply near a harmonic order in a step state \(cost 11\.7\)/);
+    expect(r.why).not.toContain('note: no arrangement meets the target with its supply resonance clear');
+  });
+
+  it('with every build clear of the watched orders, the cheapest is recommended again', () => {
+    // All clear: the cheapest, the delta bank, as before this rule.
+    expect(recommendArrangement(comparison.outcomes.map((o) => clearOf(o, true))).recommended).toBe('delta-bank');
+  });
+});
