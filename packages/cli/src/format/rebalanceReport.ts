@@ -79,9 +79,18 @@ function overloadVerdict(r: RebalanceReport, o: NonNullable<RebalanceReport['ove
     : 'a limit in the fast model, though the network re-solve finds every current within';
   if (r.moveLimit === 0) return `still over: ${what}; the move limit of 0 allows no move`;
   const budget = `${scopeWords(r.search.onlyBoards)}${r.moveLimit === null ? '' : ` with at most ${plural(r.moveLimit)}`}`;
-  return o.proven
-    ? `still over: ${what}; no arrangement${budget} does better (proven, ${OVERLOAD_ORDER})`
-    : `still over: ${what}; the least overload found${budget}, not proven (${OVERLOAD_ORDER})`;
+  if (o.proven) return `still over: ${what}; no arrangement${budget} does better (proven, ${OVERLOAD_ORDER})`;
+  const b = o.bound;
+  if (b === null) return `still over: ${what}; the least overload found${budget}, not proven (${OVERLOAD_ORDER})`;
+  // The bound rounded down (still a true bound), the answer to the nearest, at the decimals the report chose.
+  const boundText = fixed(Math.floor(b.leastPercent * 10 ** b.decimals + 1e-9) / 10 ** b.decimals, b.decimals);
+  const answerText = fixed(b.answerPercent, b.decimals);
+  const found = `fast model: best found ${answerText} %, no arrangement below ${boundText} %`;
+  if (b.answerLeast)
+    return `still over: ${what}; no arrangement${budget} has a lower largest loading (proven by a lower bound; ${found.replace('best found', 'this answer')}); after it, the least overload found (${OVERLOAD_ORDER})`;
+  return b.limitsUnreachable
+    ? `still over: ${what}; no arrangement${budget} keeps every limit (proven by a lower bound on the largest loading; ${found}); the least overload found (${OVERLOAD_ORDER})`
+    : `still over: ${what}; the least overload found${budget}, not proven (${found}; ${OVERLOAD_ORDER})`;
 }
 
 function verdict(r: RebalanceReport): string {
