@@ -132,12 +132,12 @@ function overLimitRow(circuits: number, goalMs: number | null) {
     const conductor = (ratingA: number) => ({ lengthM: 1, rOhmPerKm: 0.1, xOhmPerKm: 0.05, ratingA });
     const rated = normaliseBoard(parseBoard({ ...spec, feeder: { line: conductor(lineRating), neutral: conductor(2) } } as BoardSpec));
     const { ms, cpuMs, value: r } = bestOf(3, () => rebalanceBoard(rated, { moveLimit: 4 }, { method: 'local-search', moveTable: false }));
-    const bound = (r.overload as { bound?: { leastLoadingPercent: number; answerLoadingPercent: number } | null } | null)?.bound ?? null;
+    const bound = r.overload?.bound ?? null;
     return { ms, cpuMs, within: r.overload?.within ?? true, bound };
   });
   const cpu = rows.map((r) => r.cpuMs);
   const ok = goalMs === null || Math.max(...cpu) < goalMs;
-  const bounds = rows.filter((r) => r.bound).map((r) => `${r.bound!.answerLoadingPercent.toFixed(1)} ≥ ${r.bound!.leastLoadingPercent.toFixed(1)} %`);
+  const bounds = rows.filter((r) => r.bound).map((r) => `${r.bound!.answerPercent.toFixed(1)} ≥ ${r.bound!.leastPercent.toFixed(1)} %`);
   console.log(
     [
       `${`${circuits} circuits over ratings, local`.padEnd(36)}`,

@@ -13,6 +13,7 @@ import { afterAll, describe, expect, it } from 'vitest';
 import { InputError, normaliseBoard, parseBoard, rebalanceBoard, type BoardSpec, type ConnectionSpec } from '@trivar/core';
 import { leastLoadingBound, LOADING_BOUND_STEPS } from '../../packages/core/src/rebalance/loadingBound.js';
 import { MAX_OPTIONS, type AssignmentProblem } from '../../packages/core/src/rebalance/assignmentProblem.js';
+import { sumOfLargest } from '../../packages/core/src/rebalance/assignmentBounds.js';
 import { boardFigures, enumerateAssignments, movesBetween, smallBoardArb } from './support/rebalanceBoards.js';
 import { expectClose } from '../support/tolerance.js';
 import { FigureLog } from '../support/figureLog.js';
@@ -103,6 +104,19 @@ function bruteLeastLoading(raw: RawProblem, moveLimit: number): { least: number;
   walk(0, 0);
   return Number.isFinite(least) ? { least, choice: best } : null;
 }
+
+describe('the sum of the r largest savings (the move limit in every bound)', () => {
+  it('equals the sum of the top r of the sorted values, for r below, at and above the short-list length', () => {
+    fc.assert(
+      fc.property(fc.array(fc.double({ min: 0, max: 100, noNaN: true }), { maxLength: 60 }), fc.integer({ min: -1, max: 40 }), (values, r) => {
+        const expected = [...values].sort((a, b) => b - a).slice(0, Math.max(r, 0)).reduce((s, x) => s + x, 0);
+        const got = sumOfLargest(Float64Array.from(values), values.length, r, new Float64Array(16));
+        expectClose(got, expected, { rel: 1e-12, abs: 1e-9 }, `sum of the ${r} largest`);
+      }),
+      { numRuns: 300 },
+    );
+  });
+});
 
 describe('the least-loading bound against enumeration', () => {
   it('on random assignment problems: the bound is at or below the least largest loading within the move limit', () => {

@@ -78,6 +78,32 @@ export function leastLoadingBound(p: AssignmentProblem, moveLimit: number, optio
   const chosen = new Int32Array(n);
   const loading = new Float64Array(2 * m);
 
+  const ranked = new Float64Array(n);
+  const top = new Float64Array(16);
+  let strictlyAbove = 0;
+  /** The r-th largest saving of the movable circuits (sets strictlyAbove: how many lie above it). */
+  const kthLargest = (movable: number, r: number): number => {
+    for (let t = 0; t < movable; t++) ranked[t] = savings[byRank[t]!]!;
+    let threshold: number;
+    if (r <= top.length) {
+      top.fill(-Infinity, 0, r);
+      for (let t = 0; t < movable; t++) {
+        let v = ranked[t]!;
+        if (v <= top[r - 1]!) continue;
+        for (let u = 0; u < r; u++)
+          if (v > top[u]!) {
+            const held = top[u]!;
+            top[u] = v;
+            v = held;
+          }
+      }
+      threshold = top[r - 1]!;
+    } else threshold = ranked.subarray(0, movable).sort()[movable - r]!;
+    strictlyAbove = 0;
+    for (let t = 0; t < movable; t++) if (ranked[t]! > threshold) strictlyAbove++;
+    return threshold;
+  };
+
   /** The least value of the affine minorant at z over the assignments, and its minimiser into `chosen`. */
   const minorant = (): number => {
     let value = 0;
@@ -105,12 +131,17 @@ export function leastLoadingBound(p: AssignmentProblem, moveLimit: number, optio
       }
     }
     if (free > 0 && movable > 0) {
-      const ranked = byRank.subarray(0, movable);
-      if (free < movable) ranked.sort((a, b) => savings[b]! - savings[a]!);
-      for (let t = 0; t < Math.min(free, movable); t++) {
-        const i = ranked[t]!;
-        value -= savings[i]!;
-        chosen[i] = least[i]!;
+      // The circuits of the `free` largest savings move: all of them, or those whose saving reaches the
+      // free-th largest (ties broken by order: any of them gives the same least value).
+      const threshold = free >= movable ? -Infinity : kthLargest(movable, free);
+      let atThreshold = free - strictlyAbove;
+      for (let t = 0; t < movable; t++) {
+        const i = byRank[t]!;
+        const saving = savings[i]!;
+        if (saving > threshold || (saving === threshold && atThreshold-- > 0)) {
+          value -= saving;
+          chosen[i] = least[i]!;
+        }
       }
     }
     return value;
@@ -235,12 +266,16 @@ export function leastLoadingBound(p: AssignmentProblem, moveLimit: number, optio
  */
 export const UNREACHABLE_MARGIN = 1e-4;
 
-/** The bound stated at 0 decimals, or more (up to 2) where fewer would show it equal to the answer or not above 100 %. */
+/**
+ * Decimals for the answer's loading and the bound, %: enough to show a gap under a point (up to 2), and more where
+ * fewer would show the bound, rounded down, equal to the answer or, proving a limit out of reach, not above 100 %.
+ */
 function boundDecimals(answer: number, bound: number, unreachable: boolean): number {
   const down = (x: number, d: number) => Math.floor(x * 10 ** d + 1e-9) / 10 ** d;
   const near = (x: number, d: number) => Math.round(x * 10 ** d) / 10 ** d;
-  let d = 0;
-  while (d < 2 && ((unreachable && down(bound, d) <= 100) || (answer > bound && down(bound, d) >= near(answer, d)))) d++;
+  const gap = answer - bound;
+  let d = gap >= 1 || gap <= 0 ? 0 : gap >= 0.1 ? 1 : 2;
+  while (d < 2 && ((unreachable && down(bound, d) <= 100) || (gap > 0 && down(bound, d) >= near(answer, d)))) d++;
   return d;
 }
 
@@ -249,12 +284,13 @@ function boundDecimals(answer: number, bound: number, unreachable: boolean): num
  * equal where the exact search completed, else the bound of leastLoadingBound.
  * @param p the problem with the limits the figures are stated against
  * @param proven the exact search completed over these same limits: the answer is the least overload
+ * @param magnitudeBounds magnitudeBoundsWithMoveLimit(p, moveLimit) where the search has them (they do not depend on the limits)
  */
-export function loadingBoundOf(p: AssignmentProblem, moveLimit: number, choice: Int32Array, proven: boolean): LoadingBound {
+export function loadingBoundOf(p: AssignmentProblem, moveLimit: number, choice: Int32Array, proven: boolean, magnitudeBounds?: Float64Array | null): LoadingBound {
   const answer = 1 + largestOverload(p, magnitudesOf(sumQuantities(p, choice), new Float64Array(p.quantityCount)));
   // largestOverload counts only loadings over 1; the answer is over a limit here, so this is its largest loading.
   // Each limited quantity alone (its 256-sided polygon bound, the best direction for it) may beat the climb's start.
-  const alone = magnitudeBoundsWithMoveLimit(p, moveLimit);
+  const alone = magnitudeBounds ?? magnitudeBoundsWithMoveLimit(p, moveLimit);
   let single = 0;
   for (let j = 0; j < p.quantityCount; j++) if (Number.isFinite(p.limits[j]!) && p.limits[j]! > 0) single = Math.max(single, alone[j]! / p.limits[j]!);
   const raw = proven ? answer : Math.max(single, leastLoadingBound(p, moveLimit, { steps: LOADING_BOUND_STEPS, reached: answer, choice }));

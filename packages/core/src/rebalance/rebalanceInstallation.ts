@@ -142,6 +142,8 @@ interface Answer {
   /** Branch-and-bound stopped at the node budget before it could prove this answer. */
   readonly budgetReached: boolean;
   readonly nodes: number;
+  /** Each quantity's polygon bound over the answers within this move limit, where the search computed them. */
+  readonly magnitudeBounds: Float64Array | null;
 }
 
 /** Best answer with at most `limit` moves: local search, then branch-and-bound where it pays. */
@@ -194,9 +196,10 @@ function answerWithin({ p, single, termBound }: Search, limit: number, o: Resolv
     nodes = exact.nodes;
   }
   let lowerBound: number | null = null;
+  let bounds: Float64Array | null = null;
   if (proven) lowerBound = best.score;
   else {
-    const bounds = magnitudeBoundsWithMoveLimit(p, limit);
+    bounds = magnitudeBoundsWithMoveLimit(p, limit);
     lowerBound = termBound ? Math.max(p.score(bounds), termBound(bounds)) : p.score(bounds);
   }
   if (!proven && lowerBound !== null && withinLimits(best) && lowerBound <= best.score + tie) proven = lowerBound >= best.score - tie;
@@ -204,7 +207,7 @@ function answerWithin({ p, single, termBound }: Search, limit: number, o: Resolv
   if (lowerBound !== null && lowerBound > best.score + tie) lowerBound = null;
   // Over a limit, the score's bound is over answers the overload ranks differently: no bound on this answer's score.
   if (!withinLimits(best)) lowerBound = null;
-  return { best, lowerBound: lowerBound === null ? null : Math.min(lowerBound, best.score), proven, exactRan, budgetReached, nodes };
+  return { best, lowerBound: lowerBound === null ? null : Math.min(lowerBound, best.score), proven, exactRan, budgetReached, nodes, magnitudeBounds: bounds };
 }
 
 /**
@@ -814,7 +817,7 @@ export function rebalanceInstallation(installation: Installation, study: unknown
   // exact search over tightened limits is not one over these).
   const given = { ...p, limits: givenLimits };
   const overGiven = !withinLimits(chosen.best) && !withinLimits(scoreChoice(given, choice));
-  const loadingBound = overGiven ? loadingBoundOf(given, limit, choice, chosen.proven && !limitsTightened) : null;
+  const loadingBound = overGiven ? loadingBoundOf(given, limit, choice, chosen.proven && !limitsTightened, main.magnitudeBounds) : null;
   const overload = overloadSummary(homeNow, chosen, loadingsOf(resolved.conditions, solved, tree, resolved, label), movesForWithin, movesForWithinAllBoards, loadingBound);
   const least = overload && {
     beforePercent: overload.largestLoadingPercent.before,
