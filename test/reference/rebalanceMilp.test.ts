@@ -17,7 +17,8 @@
  * bound ≤ f(x')). Measured gaps go to test/reference/.rebalance-milp.json.
  *
  * The same MILPs check the overload-first ranking (at the end): a board rated below anything reachable must get
- * the least loading of its rated conductor, whatever the aim.
+ * the least loading of its rated conductor, whatever the aim; and, with a move limit, the lower bound the report
+ * states on the least largest loading (rebalance/loadingBound.ts) lies between the MILP's t* and its answer.
  */
 import highsDefault from 'highs';
 import { afterAll, describe, expect, it } from 'vitest';
@@ -42,7 +43,7 @@ interface MilpAnswer {
 
 const signed = (x: number) => `${x < 0 ? '-' : '+'} ${Math.abs(x).toPrecision(15)}`;
 
-async function solveMilp(spec: BoardSpec, aim: Aim): Promise<MilpAnswer> {
+async function solveMilp(spec: BoardSpec, aim: Aim, moveLimit?: number): Promise<MilpAnswer> {
   const highs = await loadHighs();
   const options = spec.loads.map((_, i) => circuitOptions(spec, i));
   // Each circuit's line currents on each option (alone on the board), and the fixed rest.
@@ -61,6 +62,9 @@ async function solveMilp(spec: BoardSpec, aim: Aim): Promise<MilpAnswer> {
   const rows: string[] = [];
   const movable = options.map((o, i) => (o.length > 1 ? i : -1)).filter((i) => i >= 0);
   for (const i of movable) rows.push(` one_${i}: ${options[i]!.map((_, k) => `x_${i}_${k}`).join(' + ')} = 1`);
+  // A move limit: the options other than where each circuit is now, taken at most that many times.
+  if (moveLimit !== undefined)
+    rows.push(` moves: ${movable.flatMap((i) => options[i]!.flatMap((o, k) => (o === spec.loads[i]!.connection ? [] : [`x_${i}_${k}`]))).join(' + ')} <= ${moveLimit}`);
   const contrib = movable.map((i) => options[i]!.map((o) => project(single(i, o))));
   const fixed = project(base);
   fixed.forEach((q, j) => {
@@ -178,3 +182,40 @@ describe('rebalance over its ratings: the least overload against a MILP (HiGHS, 
 function expectCloseRelative(actual: number, expected: number, rel: number): void {
   expect(Math.abs(actual - expected)).toBeLessThanOrEqual(rel * Math.abs(expected));
 }
+
+/**
+ * The stated bound on the least largest loading against the MILP with a move limit (a row Σ x_ik over the options a
+ * circuit is not on ≤ r): a study line capacity below the MILP's t* (so no wiring keeps it), every line capped alike,
+ * so the least largest loading is the least largest line current over the capacity. On 24–30 circuits the search is the
+ * local one, and the bound is loadingBound.ts's, not a proof of branch-and-bound. Asserted: bound ≤ f(x') ÷ capacity
+ * (x' the MILP's assignment, at or above the optimum), and the answer's loading ≥ t* ÷ capacity.
+ */
+const boundCases: { circuits: number; seed: number; moveLimit: number }[] = [
+  { circuits: 30, seed: 12, moveLimit: 4 },
+  { circuits: 24, seed: 31, moveLimit: 3 },
+];
+
+describe('rebalance over a capacity with a move limit: the stated bound against a MILP (HiGHS, 64-sided polygon)', () => {
+  it.each(boundCases)('$circuits circuits, at most $moveLimit moves (seed $seed)', async ({ circuits, seed, moveLimit }) => {
+    const spec = randomBoard({ system: 'three-phase-4wire', circuits, threePhaseLoad: true }, seeded(seed));
+    const milp = await solveMilp(spec, 'largestLine', moveLimit);
+    expect(milp.status).toBe('Optimal');
+    const milpLargest = scoreOf(spec, milp.connections, 'largestLine');
+    // Below t* (≤ the optimum): over in every wiring; above |I1|, which a capacity must leave room for (else refused).
+    const capacity = Math.max(0.97 * milp.lowerBound, 1.002 * milpLargest.positive);
+    expect(capacity).toBeLessThan(milp.lowerBound);
+    const report = rebalanceBoard(normaliseBoard(parseBoard(spec)), { aim: { largestLine: 1 }, lineCapacityA: capacity, moveLimit }, { moveTable: false });
+    expect(report.method).toBe('local-search');
+    const bound = report.overload!.bound!;
+    const slack = 1e-9;
+    figures.describe(`loading bound, ${moveLimit} moves`, {
+      milpLowerBoundPercent: (100 * milp.lowerBound) / capacity,
+      milpAnswerPercent: (100 * milpLargest.score) / capacity,
+      answerPercent: bound.answerPercent,
+      boundPercent: bound.leastPercent,
+    });
+    expect(bound.leastPercent / 100).toBeLessThanOrEqual(milpLargest.score / capacity + slack);
+    expect(bound.answerPercent / 100).toBeGreaterThanOrEqual(milp.lowerBound / capacity - slack);
+    expect(bound.limitsUnreachable).toBe(bound.leastPercent > 100.01);
+  });
+});

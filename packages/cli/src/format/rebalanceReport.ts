@@ -74,14 +74,24 @@ const OVERLOAD_ORDER = 'least overload first: the largest loading over 100 %, th
 
 /** The verdict where the answer leaves something over a rating or capacity: what, how far, and whether proven least. */
 function overloadVerdict(r: RebalanceReport, o: NonNullable<RebalanceReport['overload']>, plural: (n: number) => string): string {
+  // The re-solve's figure; where whole per cents would put it below the fast model's bound beside it, the bound's decimals.
+  const worstDigits = o.bound && !o.proven && Number(fixed(o.worst?.loadingPercent ?? 0, 0)) < Math.floor(o.bound.leastPercent) ? o.bound.decimals : 0;
   const what = o.worst
-    ? `${o.worst.what} at ${fixed(o.worst.loadingPercent, 0)} % of its ${o.worst.limit}`
+    ? `${o.worst.what} at ${fixed(o.worst.loadingPercent, worstDigits)} % of its ${o.worst.limit}${worstDigits ? ' (network re-solve)' : ''}`
     : 'a limit in the fast model, though the network re-solve finds every current within';
   if (r.moveLimit === 0) return `still over: ${what}; the move limit of 0 allows no move`;
   const budget = `${scopeWords(r.search.onlyBoards)}${r.moveLimit === null ? '' : ` with at most ${plural(r.moveLimit)}`}`;
-  return o.proven
-    ? `still over: ${what}; no arrangement${budget} does better (proven, ${OVERLOAD_ORDER})`
-    : `still over: ${what}; the least overload found${budget}, not proven (${OVERLOAD_ORDER})`;
+  if (o.proven) return `still over: ${what}; no arrangement${budget} does better (proven, ${OVERLOAD_ORDER})`;
+  const b = o.bound;
+  if (b === null) return `still over: ${what}; the least overload found${budget}, not proven (${OVERLOAD_ORDER})`;
+  // The bound rounded down (still a true bound), the answer to the nearest, at the decimals the report chose.
+  const boundText = fixed(Math.floor(b.leastPercent * 10 ** b.decimals + 1e-9) / 10 ** b.decimals, b.decimals);
+  const answerText = fixed(b.answerPercent, b.decimals);
+  if (b.answerLeast)
+    return `still over: ${what}; no arrangement${budget} has a lower largest loading (proven by a lower bound: ${answerText} % in the fast model); after it, the least overload found (${OVERLOAD_ORDER})`;
+  return b.limitsUnreachable
+    ? `still over: ${what}; no arrangement${budget} keeps every limit (proven by a lower bound: in the fast model none has its largest loading below ${boundText} %, this answer ${answerText} %); the least overload found (${OVERLOAD_ORDER})`
+    : `still over: ${what}; the least overload found${budget}, not proven (fast model: best found ${answerText} %, no arrangement below ${boundText} %; ${OVERLOAD_ORDER})`;
 }
 
 function verdict(r: RebalanceReport): string {

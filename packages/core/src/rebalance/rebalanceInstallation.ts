@@ -23,6 +23,7 @@ import * as z from 'zod';
 import {
   homeChoice,
   isBetter,
+  largestOverload,
   magnitudesOf,
   OVERLOAD_TIE,
   scoreChoice,
@@ -41,9 +42,10 @@ import { searchExact } from './searchExact.js';
 import { greedyChoice, searchLocal, trimMoves } from './searchLocal.js';
 import { searchMeetInMiddle } from './searchMeetInMiddle.js';
 import { termBoundFor } from './termBounds.js';
+import { leastLoadingBound, LOADING_BOUND_STEPS, loadingBoundOf, UNREACHABLE_MARGIN } from './loadingBound.js';
 import { ratedReadings, type RatedReading } from './ratedCurrentLimits.js';
 import { installationInCondition, moveInstallationCircuits } from './applyMoves.js';
-import type { BoardVoltageComparison, CapacityExcess, CircuitMove, ConditionComparison, MoveTableRow, Overload, RebalanceReport } from './rebalanceResult.js';
+import type { BoardVoltageComparison, CapacityExcess, CircuitMove, ConditionComparison, LoadingBound, MoveTableRow, Overload, RebalanceReport } from './rebalanceResult.js';
 import { REBALANCE_NOTES, rebalanceCautions } from './rebalanceWording.js';
 import { movedCircuitNumber } from './movedCircuitNumber.js';
 import { bankInServiceWords, listedBanksInService } from '../analysis/banksInServiceWords.js';
@@ -140,6 +142,8 @@ interface Answer {
   /** Branch-and-bound stopped at the node budget before it could prove this answer. */
   readonly budgetReached: boolean;
   readonly nodes: number;
+  /** Each quantity's polygon bound over the answers within this move limit, where the search computed them. */
+  readonly magnitudeBounds: Float64Array | null;
 }
 
 /** Best answer with at most `limit` moves: local search, then branch-and-bound where it pays. */
@@ -192,9 +196,10 @@ function answerWithin({ p, single, termBound }: Search, limit: number, o: Resolv
     nodes = exact.nodes;
   }
   let lowerBound: number | null = null;
+  let bounds: Float64Array | null = null;
   if (proven) lowerBound = best.score;
   else {
-    const bounds = magnitudeBoundsWithMoveLimit(p, limit);
+    bounds = magnitudeBoundsWithMoveLimit(p, limit);
     lowerBound = termBound ? Math.max(p.score(bounds), termBound(bounds)) : p.score(bounds);
   }
   if (!proven && lowerBound !== null && withinLimits(best) && lowerBound <= best.score + tie) proven = lowerBound >= best.score - tie;
@@ -202,7 +207,7 @@ function answerWithin({ p, single, termBound }: Search, limit: number, o: Resolv
   if (lowerBound !== null && lowerBound > best.score + tie) lowerBound = null;
   // Over a limit, the score's bound is over answers the overload ranks differently: no bound on this answer's score.
   if (!withinLimits(best)) lowerBound = null;
-  return { best, lowerBound: lowerBound === null ? null : Math.min(lowerBound, best.score), proven, exactRan, budgetReached, nodes };
+  return { best, lowerBound: lowerBound === null ? null : Math.min(lowerBound, best.score), proven, exactRan, budgetReached, nodes, magnitudeBounds: bounds };
 }
 
 /**
@@ -447,7 +452,14 @@ function loadingsOf(
  * The overload of the present wiring and the answer, with what stays over most (network re-solve); null where both
  * keep every limit in the fast model the search ranks answers by (assignmentProblem.ts isBetter).
  */
-function overloadSummary(home: ScoredChoice, chosen: Answer, loadings: readonly Loading[], movesForWithin: number | null, movesForWithinAllBoards: number | null): Overload | null {
+function overloadSummary(
+  home: ScoredChoice,
+  chosen: Answer,
+  loadings: readonly Loading[],
+  movesForWithin: number | null,
+  movesForWithinAllBoards: number | null,
+  bound: LoadingBound | null,
+): Overload | null {
   if (withinLimits(home) && withinLimits(chosen.best)) return null;
   const largest = (side: 'before' | 'after') => 100 * Math.max(0, ...loadings.map((x) => x[side]));
   const overSum = (side: 'before' | 'after') => 100 * loadings.reduce((t, x) => t + Math.max(0, x[side] - 1), 0);
@@ -460,6 +472,7 @@ function overloadSummary(home: ScoredChoice, chosen: Answer, loadings: readonly 
     worst: worst && worst.after > 1 ? { what: worst.what, loadingPercent: 100 * worst.after, limit: worst.limit } : null,
     movesForWithin,
     movesForWithinAllBoards,
+    bound,
   };
 }
 
@@ -685,6 +698,8 @@ export function rebalanceInstallation(installation: Installation, study: unknown
   let { main, chosen, table, tableChoices, nearBestScore } = searchAnswers();
   let { moves, solved } = outcomeOf(chosen.best.choice);
   let limitsTightened = false;
+  // The limits as the file and study give them, before a re-solve tightens any: what the stated bound is against.
+  const givenLimits = Float64Array.from(p.limits);
   // Where the re-solve puts a rating over that the fast model kept, that limit is tightened by as much and the search runs again.
   const magnitudesAfter = (c: Int32Array) => magnitudesOf(sumQuantities(p, c), new Float64Array(p.quantityCount));
   for (let pass = 0; pass < RATING_PASSES && tightenRatedLimits(built, tree, ratingExcesses(ratingChanges(resolved.conditions, solved, tree)), magnitudesAfter(chosen.best.choice)); pass++) {
@@ -746,7 +761,12 @@ export function rebalanceInstallation(installation: Installation, study: unknown
   const ratingOver = ratingExcesses(ratings);
   if (excesses.length) {
     const bounds = magnitudeBoundsWithMoveLimit(p, limit);
-    const impossible = built.layouts.some((l) => l.lines.some((j, k) => bounds[j]! > resolved.lineCapacityA[k]! + tie));
+    // The study's capacities alone: the per-line polygon bound, or the least largest loading over them all.
+    const capacities = withoutRatings(built, resolved);
+    const impossible =
+      built.layouts.some((l) => l.lines.some((j, k) => bounds[j]! > resolved.lineCapacityA[k]! + tie)) ||
+      leastLoadingBound(capacities, limit, { steps: LOADING_BOUND_STEPS, reached: 1 + largestOverload(capacities, magnitudesOf(sumQuantities(capacities, choice), new Float64Array(p.quantityCount))), choice }) >
+        1 + UNREACHABLE_MARGIN;
     const several = tree.boards.length > 1;
     // The note quotes the re-solve's current, as the tables beside it do; the fast model's where only it has the line over.
     const solvedA = (e: CapacityExcess) => {
@@ -793,8 +813,21 @@ export function rebalanceInstallation(installation: Installation, study: unknown
     notes.push(REBALANCE_NOTES.limitKeepsLargerOverload(limit, wider.moves, largestLoadingPercent(p, wider.choice)!));
   const movesForWithinAllBoards = onlyBoards && !withinLimits(chosen.best) ? fewestMovesOnEveryBoard(tree, study, resolved, options, o, solvedNow, tie) : null;
   if (onlyBoards && movesForWithinAllBoards !== null) notes.push(REBALANCE_NOTES.otherBoardsWithin(onlyBoards, movesForWithinAllBoards));
-  const overload = overloadSummary(homeNow, chosen, loadingsOf(resolved.conditions, solved, tree, resolved, label), movesForWithin, movesForWithinAllBoards);
-  const least = overload && { beforePercent: overload.largestLoadingPercent.before, afterPercent: overload.largestLoadingPercent.after, proven: overload.proven, moveLimit: limitWords, onlyBoards };
+  // Over a limit: the least largest loading any arrangement can reach, against the limits as given (a proof of the
+  // exact search over tightened limits is not one over these).
+  const given = { ...p, limits: givenLimits };
+  const overGiven = !withinLimits(chosen.best) && !withinLimits(scoreChoice(given, choice));
+  const loadingBound = overGiven ? loadingBoundOf(given, limit, choice, chosen.proven && !limitsTightened, main.magnitudeBounds) : null;
+  const overload = overloadSummary(homeNow, chosen, loadingsOf(resolved.conditions, solved, tree, resolved, label), movesForWithin, movesForWithinAllBoards, loadingBound);
+  const least = overload && {
+    beforePercent: overload.largestLoadingPercent.before,
+    afterPercent: overload.largestLoadingPercent.after,
+    proven: overload.proven,
+    unreachable: loadingBound?.limitsUnreachable ?? false,
+    ratingsOnly: resolved.lineCapacityA.every((c) => c === Infinity),
+    moveLimit: limitWords,
+    onlyBoards,
+  };
   if (resolved.nearBestPercent !== null && nearBestScore === null) notes.push(REBALANCE_NOTES.nearBestUnused(resolved.nearBestPercent));
   // The present wiring's and the answer's rows give the re-solve's loading, the one the notes and verdict quote.
   const moveTable = table?.map((row, k): MoveTableRow => {

@@ -120,6 +120,23 @@ export interface CapacityExcess {
  * fast model's loadings: the largest over 100 % first, then the loadings over 100 % added, then the score, then
  * the moves. The figures here are the network re-solve's.
  */
+/**
+ * The least largest loading any arrangement can reach, beside the answer's (fast model, each limit as the file and
+ * study give it, before any tightening after a re-solve; % of each limit): loadingBound.ts says why it is a bound.
+ */
+export interface LoadingBound {
+  /** No arrangement within the move limit (of the circuits `boards.movable` holds) has its largest loading below this, %. */
+  readonly leastPercent: number;
+  /** The answer's largest loading in the same model and against the same limits, %. */
+  readonly answerPercent: number;
+  /** The bound is above 100 % (by more than 0.01 %): no arrangement keeps every limit, proven. */
+  readonly limitsUnreachable: boolean;
+  /** The bound meets the answer's loading: no arrangement has a lower largest loading, proven. */
+  readonly answerLeast: boolean;
+  /** Decimals that state the two figures as they compare (the bound rounded down, the answer to the nearest). */
+  readonly decimals: number;
+}
+
 export interface Overload {
   /** The largest loading of a limited current, %, now and after the moves. */
   readonly largestLoadingPercent: { readonly before: number; readonly after: number };
@@ -141,6 +158,8 @@ export interface Overload {
    * arrangement of every board's circuits (same move limit) keeps every limit, found by local search; else null.
    */
   readonly movesForWithinAllBoards: number | null;
+  /** Where the answer stays over a limit in the fast model: the least largest loading any arrangement can reach beside its own; else null. */
+  readonly bound: LoadingBound | null;
 }
 
 /** One board's neutral with harmonics (the harmonic study at the file's loads), now and after the moves. */

@@ -27,6 +27,10 @@ interface LeastOverload {
   readonly beforePercent: number;
   readonly afterPercent: number;
   readonly proven: boolean;
+  /** A lower bound shows no arrangement keeps every limit (loadingBound.ts). */
+  readonly unreachable: boolean;
+  /** The study sets no line capacity: every limit is a rating the file gives. */
+  readonly ratingsOnly: boolean;
   readonly moveLimit: number | null;
   readonly onlyBoards: readonly string[] | null;
 }
@@ -157,7 +161,7 @@ export const REBALANCE_NOTES = {
   overRatingTraded: (items: readonly RatingWords[], least: LeastOverload) =>
     `! To lower the worst overload, these moves put what the file rates over its rating, or further over: ${items
       .map((x) => `${x.what}${whereWords(x)} would carry ${x.afterA.toFixed(1)} A against its rating of ${x.ratingA.toFixed(1)} A (now ${x.nowA.toFixed(1)} A)`)
-      .join('; ')}. ${least.proven ? `Every arrangement${limitWords(least.moveLimit, least.onlyBoards)} leaves something over its rating (proven)` : 'No arrangement found keeps every rating'}; with this one the most loaded current is at ${loadingWords(least.afterPercent)} % of its limit, against ${loadingWords(least.beforePercent)} % now. An overload remains: check each rating and its protection before the work, and reduce the load or upgrade what is over.`,
+      .join('; ')}. ${least.proven || least.unreachable ? `Every arrangement${limitWords(least.moveLimit, least.onlyBoards)} leaves something over ${least.ratingsOnly ? 'its rating' : 'a rating or capacity'} (proven${least.proven ? '' : ' by a lower bound'})` : 'No arrangement found keeps every rating'}; with this one the most loaded current is at ${loadingWords(least.afterPercent)} % of its limit, against ${loadingWords(least.beforePercent)} % now. An overload remains: check each rating and its protection before the work, and reduce the load or upgrade what is over.`,
   /** Rated items over their rating as things stand, and what the moves do to them. */
   overRatingNow: (items: readonly RatingWords[], moved: boolean, least: LeastOverload | null) => {
     const head = `Over its rating as things stand: ${items
