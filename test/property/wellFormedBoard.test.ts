@@ -14,6 +14,7 @@ import { readWellFormedBoard } from '../../packages/core/src/boardFile/boardFile
 import { BOARD_FILE_CHECKS } from '../../packages/core/src/boardFile/validateBoard.js';
 import { validateBoardWith } from '../../packages/core/src/board/validateBoardWith.js';
 import { boardSpecArb } from './arbitraries/boardSpec.js';
+import { applyChange, places } from './arbitraries/plainDataChanges.js';
 
 /** The schema's answer, without the shortcut. */
 const bySchema = (input: unknown) => validateBoardWith(BOARD_FILE_CHECKS, input);
@@ -186,46 +187,3 @@ describe('readWellFormedBoard', () => {
     expect(validateBoard(noNeutral).ok).toBe(false);
   });
 });
-
-/** Every (object or list, key) pair inside `root`, and every object or list (key null: add a key there). */
-function places(root: unknown): [Record<string, unknown>, string | null][] {
-  const out: [Record<string, unknown>, string | null][] = [];
-  const walk = (v: unknown) => {
-    if (v === null || typeof v !== 'object') return;
-    const o = v as Record<string, unknown>;
-    out.push([o, null]);
-    for (const key of Object.keys(o)) {
-      out.push([o, key]);
-      walk(o[key]);
-    }
-  };
-  walk(root);
-  return out;
-}
-
-interface Change {
-  readonly at: number;
-  readonly kind: 'set' | 'delete';
-  readonly number: number;
-  readonly word: string;
-  readonly other: unknown;
-  readonly typed: boolean;
-  readonly key: string;
-}
-
-/** Sets a number to another number (a range's edge, mostly), a word to another word, or anything to anything; deletes; adds keys. */
-function applyChange(root: unknown, c: Change): void {
-  const all = places(root);
-  const [target, key] = all[c.at % all.length]!;
-  if (key === null) {
-    const value = structuredClone(c.typed ? c.number : c.other); // the pool's objects are shared between runs
-    if (Array.isArray(target)) target.push(value);
-    else Object.defineProperty(target, c.key, { value, enumerable: true, writable: true, configurable: true });
-  } else if (c.kind === 'delete') {
-    if (Array.isArray(target)) target.splice(Number(key), 1);
-    else delete target[key];
-  } else {
-    const now = target[key];
-    target[key] = c.typed && typeof now === 'number' ? c.number : c.typed && typeof now === 'string' ? c.word : structuredClone(c.other);
-  }
-}

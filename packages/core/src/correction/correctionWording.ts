@@ -378,6 +378,16 @@ export const warningText = {
 const kvarText = (x: number) => x.toFixed(2);
 const listWords = (xs: readonly string[]) => (xs.length <= 1 ? xs.join('') : `${xs.slice(0, -1).join(', ')} and ${xs.at(-1)}`);
 
+/** What the words of a withheld build read (WithheldBuild with its idle lines labelled). */
+interface WithheldWordsOf {
+  readonly reasons: readonly string[];
+  readonly capacitorKvar: number;
+  readonly reactorKvar: number;
+  readonly targetPfBefore: number | null;
+  readonly targetPfWithBuild: number | null;
+  readonly idleLinesLoaded: readonly { readonly line: string; readonly currentA: number }[];
+}
+
 /** The words of a study that ends with nothing to build (nothingToBuild.ts holds the figures). */
 export const nothingToBuildWords = {
   why: (w: {
@@ -385,14 +395,7 @@ export const nothingToBuildWords = {
     readonly minStepKvar: number;
     readonly smallestUnits: readonly { readonly branchLabel: string; readonly line: string; readonly unitName: string; readonly capacitanceUF: number; readonly kvarAtAppliedV: number; readonly minimumUF: number; readonly maximumUF: number | null }[];
     readonly tolerance: { readonly minusPercent: number; readonly plusPercent: number } | null;
-    readonly withheld: {
-      readonly reasons: readonly string[];
-      readonly capacitorKvar: number;
-      readonly reactorKvar: number;
-      readonly targetPfBefore: number | null;
-      readonly targetPfWithBuild: number | null;
-      readonly idleLinesLoaded: readonly { readonly line: string; readonly currentA: number }[];
-    } | null;
+    readonly withheld: WithheldWordsOf | null;
     readonly definitionWords: string;
   }): string => {
     const parts: string[] = [];
@@ -430,14 +433,7 @@ export const nothingToBuildWords = {
   },
   /** A build verified and not offered, and what it would have done. */
   withheld: (
-    h: {
-      readonly reasons: readonly string[];
-      readonly capacitorKvar: number;
-      readonly reactorKvar: number;
-      readonly targetPfBefore: number | null;
-      readonly targetPfWithBuild: number | null;
-      readonly idleLinesLoaded: readonly { readonly line: string; readonly currentA: number }[];
-    },
+    h: WithheldWordsOf,
     definitionWords: string,
   ): string => {
     const what = h.reasons.includes('reactors-alone')
