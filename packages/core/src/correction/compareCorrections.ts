@@ -22,6 +22,7 @@ import { CORRECTION_DEFAULTS } from './correctionDefaults.js';
 import type { CorrectionReport, CorrectionStatus } from './correctionResult.js';
 import { arrangementNames, comparisonWording } from './correctionWording.js';
 import { balanceWorsening } from './balanceWorsening.js';
+import { comparisonRiseWords } from './voltageRiseFlag.js';
 import { assertViableBoard } from '../analysis/viableOperatingPoint.js';
 import { assertBoardModel } from '../board/modelGuards.js';
 
@@ -43,6 +44,9 @@ export interface ArrangementFigures {
   readonly lossesKW: number;
   /** Cost figure used to rank (kvar-equivalents). */
   readonly cost: number;
+  /** The steady voltage rise judged against the flag level, %, and whether it is above it (VoltageRise.judgedPercent, flagged): said beside the verdict, it does not rank. */
+  readonly voltageRisePercent: number;
+  readonly voltageRiseFlagged: boolean;
 }
 
 export interface ArrangementOutcome {
@@ -116,6 +120,8 @@ export function figuresOf(r: CorrectionReport): ArrangementFigures {
     negativeSequencePercent: v.unbalance?.negativeSequenceCurrentPercent.after ?? null,
     lossesKW: v.after.losses.totalKW,
     cost: (sel?.cost.value ?? 0) + CORRECTION_DEFAULTS.reactorCostFactor * reactorKvar,
+    voltageRisePercent: v.voltageRise.judgedPercent,
+    voltageRiseFlagged: v.voltageRise.flagged,
   };
 }
 
@@ -208,7 +214,18 @@ export function recommendArrangement(outcomes: readonly ArrangementOutcome[], am
   const ownLead = chosen.report.verification.before.warnings.find((w) => w.code === 'line-leading');
   // Nothing to build: why, in the figures of each line's need, and what to do instead.
   const nothing = chosen.report.nothingToBuild;
-  const notes = [...(nothing ? [nothing.why, nothing.advice] : []), ...(ownLead ? [comparisonWording.ownCapacitorsLead(ownLead.message)] : []), ...overloaded, ...worse];
+  // Nor that a build raises the voltage above the flag level: each such arrangement with its figure, and what it means here.
+  const rises = [chosen, ...others].filter((o) => o.figures.voltageRiseFlagged);
+  const rise = rises.length
+    ? [
+        comparisonRiseWords(
+          rises.map((o) => ({ name: names[o.arrangement], percent: o.figures.voltageRisePercent, recommended: o === chosen })),
+          chosen.report.verification.voltageRise.flagLevelPercent,
+          chosen.figures.voltageRiseFlagged ? (chosen.report.verification.voltageRise.flagReading?.words ?? null) : null,
+        ),
+      ]
+    : [];
+  const notes = [...(nothing ? [nothing.why, nothing.advice] : []), ...(ownLead ? [comparisonWording.ownCapacitorsLead(ownLead.message)] : []), ...overloaded, ...worse, ...rise];
   const whyAll = notes.length ? `${why}; ${notes.join('; ')}` : why;
   return { recommended: chosen.arrangement, meetsTarget, why: whyAll, rule: comparisonWording.rule };
 }

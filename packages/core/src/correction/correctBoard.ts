@@ -38,6 +38,7 @@ import { regionWords, starWordOf } from '../board/conventions/regionWords.js';
 import { assertBoardModel } from '../board/modelGuards.js';
 import { judgedNominalOf } from '../board/nominalVoltages.js';
 import { emptyBelowKvar } from './_internal/branchReadings.js';
+import { riseFlagRider } from './voltageRiseFlag.js';
 
 /** @param use `limitsOnly` for the light-load sizing, read only for its limits (see ResolvedBankOptions) */
 function sizeArrangement(board: Board, spec: CorrectionSpec & { arrangement: Arrangement }, use: { limitsOnly?: boolean; heldBranches?: readonly string[] } = {}): BankSizing | CompensatorSizing {
@@ -501,7 +502,9 @@ export function correctBoard(board: Board, spec: unknown): CorrectionReport {
       // A line that led before is held to another rule than the target as written: the verdict says which and why.
       (status.startsWith('meets') ? exemptWords(verification, label) : '') +
       // Meeting the PF target says nothing of what the equipment overloads: the summary says it beside the verdict.
-      (verification.overloadsCaused.length ? `; but with it in, ${verification.overloadsCaused.map((o) => o.message).join('; ')}` : ''),
+      (verification.overloadsCaused.length ? `; but with it in, ${verification.overloadsCaused.map((o) => o.message).join('; ')}` : '') +
+      // Nor does it say what the rise does: above the flag level the verdict carries the flag beside it.
+      riseFlagRider(verification.voltageRise, 'see the warnings'),
     reasons,
     target,
     sizing,
