@@ -115,7 +115,7 @@ describe('trivar report: the same word and the flag beside the outcome', () => {
     const md = readFileSync(out, 'utf8');
     expect(md).not.toMatch(/\(limit 3/);
     expect(md).toContain('- **Outcome:** meets target; voltage rise above the 3 % flag level');
-    expect(md).toContain('- **Voltage rise from the capacitors:** 4.53 % solved, about 4.10 % estimated; flag level 3 %: above it (see the warnings below)');
+    expect(md).toContain('- **Voltage rise from the capacitors:** 4.53 % solved, about 4.10 % estimated; above the 3 % flag level (see the warnings below)');
     expect(md).toContain('| Star bank | meets the target; voltage rise 5.79 %, above the 3 % flag level |');
     expect(md).toContain('| Delta bank | meets the target; voltage rise 4.53 %, above the 3 % flag level |');
     expect(md).toMatch(/Recommended — delta bank: .*note: the recommended delta bank raises the board voltage by about 4\.53 % at design load/);

@@ -45,8 +45,8 @@ export function lossChangeWords(beforeKW: number, afterKW: number, reductionKW: 
  */
 function riseFact(r: CorrectionReport['verification']['voltageRise']): string {
   const estimate = r.estimatePercent === null ? '' : `, about ${fixed(r.estimatePercent, 2)} % estimated`;
-  const judged = r.flagged ? 'above it (see the warnings below)' : 'not above it';
-  return `${fixed(r.solvedPercent, 2)} % solved${estimate}; flag level ${levelText(r.flagLevelPercent)} %: ${judged}`;
+  const level = `the ${levelText(r.flagLevelPercent)} % flag level`;
+  return `${fixed(r.solvedPercent, 2)} % solved${estimate}; ${r.flagged ? `above ${level} (see the warnings below)` : `not above ${level}`}`;
 }
 
 /** A PF before → after; none where no power flows (a PF of nothing is not defined). */
