@@ -79,7 +79,7 @@ export function correctionComparisonBlocks(c: CorrectionComparison | HarmonicCom
         return withVariant([
           name,
           // A build above the rise's flag level carries the flag in its verdict, with the figure.
-          `${VERDICT_WORDS[o.report.status] ?? o.report.status}${built && f.voltageRiseFlagged ? `; voltage rise ${riseFigureText(f.voltageRisePercent, o.report.verification.voltageRise.flagLevelPercent)} %, above the ${levelText(o.report.verification.voltageRise.flagLevelPercent)} % flag level` : ''}`,
+          `${VERDICT_WORDS[o.report.status] ?? o.report.status}${!noAfter && f.voltageRiseFlagged ? `; voltage rise ${riseFigureText(f.voltageRisePercent, o.report.verification.voltageRise.flagLevelPercent)} %, above the ${levelText(o.report.verification.voltageRise.flagLevelPercent)} % flag level` : ''}`,
           built ? fixed(f.deliveredKvar, 1) : dash,
           f.reactorKvar > 0 ? fixed(f.reactorKvar, 1) : dash,
           built ? fixed(f.nameplateKvar, 1) : dash,
