@@ -102,6 +102,20 @@ describe('one arrangement: the verdict carries the flag', () => {
     expect(text).toMatch(/\n  delta bank +meets +\d/);
   });
 
+  it('a tighter band (±5 %): the unloaded board with every step in is above it, and the words say what that asks of the controller', () => {
+    const file = join(dir, 'band-5.yaml');
+    writeFileSync(file, `${readFileSync(BOARD, 'utf8')}conventions: { voltageLimits: { underPercent: 5, overPercent: 5 } }\n`);
+    const json = JSON.parse(runTrivar(['correct', file, '--arrangement', 'delta-bank', '--json']).stdout);
+    const reading = json.verification.voltageRise.flagReading;
+    expect(reading.band).toEqual({ lowPercent: 95, highPercent: 105 });
+    // The same solves as at ±10 %: 105.36 % with every step in, above 105 %; at design load the bank lifts the
+    // board into the band (95.4 % at its lowest), nearer nominal than 91.8 % without it.
+    expect(reading.noLoad.everyStepInPercent).toBeCloseTo(105.36, 2);
+    expect(reading.atNoLoad).toBe('above-band');
+    expect(reading.atDesignLoad).toBe('towards-nominal');
+    expect(reading.words).toContain("it would reach 105.4 % (100.4 % without the bank), above the band's 105.0 %: the steps must be out before the load falls that far");
+  });
+
   it('a board whose rise is small: no flag anywhere (the corner bakery)', () => {
     const text = runTrivar(['correct', 'examples/corner-bakery.yaml']).stdout;
     expect(text).not.toMatch(/flag level|meets\*|FLAGGED/);
