@@ -63,7 +63,7 @@ describe('correctBoard on an uneven 4-wire board behind a 160 kVA transformer', 
     // Capacitors raise the lines they sit on and reactors lower theirs: the net kvar estimates neither.
     expect(compensator.estimateWithheld).toBe('reactors');
     expect(compensator.estimatePercent).toBeNull();
-    expect(compensator.flagged).toBe(compensator.solvedPercent > compensator.limitPercent);
+    expect(compensator.flagged).toBe(compensator.solvedPercent > compensator.flagLevelPercent);
     // A capacitor-only bank keeps its first-order estimate.
     const bank = correctBoard(withKiln, { arrangement: 'star-bank', target: { pf: 0.95 } }).verification.voltageRise;
     expect(bank.estimateWithheld).toBeNull();

@@ -169,8 +169,9 @@ export type { InstallationEffect, BoardEffect, IncomerLineEffect, OtherBoardWarn
 export { installationEffect } from './correction/installationEffect.js';
 export { ORIGIN_POINT, meteringPoints, meteringPointIssues } from './correction/meteringPoint.js';
 export type * from './correction/correctionResult.js';
-export { arrangementDescriptions, arrangementNames, BUILD_VERDICT_WORDS, CORRECTION_CAUTIONS, exemptLeadingLines, exemptLeadingWords, lossesPlaceWords, meteringPointWords, reactorChanges, smallBranchWords, sparedBranchesWords, stepStatesClearWords, stepStateTable } from './correction/correctionWording.js';
+export { arrangementDescriptions, arrangementNames, BUILD_VERDICT_WORDS, CORRECTION_CAUTIONS, everyLineReadingWords, exemptLeadingLines, exemptLeadingWords, lossesPlaceWords, meteringPointWords, reactorChanges, smallBranchWords, sparedBranchesWords, stepStatesClearWords, stepStateTable } from './correction/correctionWording.js';
 export type { StepStateTable } from './correction/correctionWording.js';
+export { levelText, riseFigureText } from './correction/voltageRiseFlag.js';
 
 // Load over time (trivar profile)
 export type { ProfileSpec, ScenarioSpec, TariffSpec, ProfileBankSpec, BankStepSpec, ProfileLimitsSpec } from './profile/profileSpec.js';

@@ -1,6 +1,6 @@
 /** CorrectionComparison → the side-by-side report of `trivar correct` without an arrangement (fits 100 columns). */
 import { boundFigure } from './correctionReport.js';
-import { arrangementNames, exemptLeadingLines, lossesPlaceWords, exemptLeadingWords, labellerOf, type Arrangement, type Region, type ArrangementOutcome, type CorrectionComparison, type HarmonicComparison, signedPfText } from '@trivar/core';
+import { arrangementNames, levelText, riseFigureText, exemptLeadingLines, lossesPlaceWords, exemptLeadingWords, labellerOf, type Arrangement, type Region, type ArrangementOutcome, type CorrectionComparison, type HarmonicComparison, signedPfText } from '@trivar/core';
 import { fixed, renderTable, section } from './textTable.js';
 import { headerLines } from './solveReport.js';
 import { renderCorrectionReport, renderNothingToAdd } from './correctionReport.js';
@@ -64,9 +64,11 @@ function row(o: ArrangementOutcome, names: Readonly<Record<Arrangement, string>>
   const partBuilt = built && o.report.status === 'no-suitable-units';
   // Nothing built (no unit fits): there is no "after" to show, and the board as it stands is not one.
   const noAfter = !built && o.report.status !== 'already-meets-target';
+  const verdict = partBuilt ? 'part built' : failsCheck.has(o.arrangement) && o.report.status.startsWith('meets') ? 'fails check' : overloading(o) ? 'overloads' : resonating(o) ? 'near harmonic' : (VERDICT[o.report.status] ?? o.report.status);
   return [
     name,
-    partBuilt ? 'part built' : failsCheck.has(o.arrangement) && o.report.status.startsWith('meets') ? 'fails check' : overloading(o) ? 'overloads' : resonating(o) ? 'near harmonic' : (VERDICT[o.report.status] ?? o.report.status),
+    // A build above the rise's flag level is never a plain verdict: the mark sends the reader to its figure below.
+    `${verdict}${built && f.voltageRiseFlagged ? RISE_MARK : ''}`,
     built ? fixed(f.deliveredKvar, 1) + (f.reactorKvar > 0 ? `+L${fixed(f.reactorKvar, 1)}` : '') : '-',
     built ? fixed(f.nameplateKvar, 1) : '-',
     built ? String(f.units) : '-',
@@ -76,6 +78,18 @@ function row(o: ArrangementOutcome, names: Readonly<Record<Arrangement, string>>
     noAfter || f.negativeSequencePercent === null ? '-' : fixed(f.negativeSequencePercent, 1),
     noAfter ? '-' : fixed(f.lossesKW, 3),
   ];
+}
+
+/** Beside a verdict whose build raises the voltage above the flag level (riseFootnote). */
+const RISE_MARK = '*';
+
+/** The arrangements marked with RISE_MARK, each with its rise: the flag the verdict carries, in figures. */
+function riseFootnote(c: CorrectionComparison, names: Readonly<Record<Arrangement, string>>): string[] {
+  const flagged = c.outcomes.filter((o) => (o.report?.selection?.units ?? 0) > 0 && o.figures?.voltageRiseFlagged);
+  const level = flagged[0]?.report?.verification.voltageRise.flagLevelPercent;
+  if (level === undefined) return [];
+  const figures = flagged.map((o) => `${names[o.arrangement]} ${riseFigureText(o.figures!.voltageRisePercent, level)} %`).join(', ');
+  return [`*: raises the board voltage above the ${levelText(level)} % flag level at design load: ${figures} (what that means here: see Recommendation)`];
 }
 
 /**
@@ -132,6 +146,7 @@ export function renderComparisonReport(c: CorrectionComparison): string {
         `${names['star-bank'] === TWO_LINE_TABLE_NAMES['star-bank'] ? `${TWO_LINE_LEGEND}; ` : ''}delivered: kvar at the solved voltage (+L: reactor kvar); nom C: at nominal capacitance only;${c.outcomes.some((o) => o.report?.status === 'no-suitable-units' && (o.report.selection?.units ?? 0) > 0) ? ' part built: no unit suits some branches, the rest built without them;' : ''}${c.outcomes.some(overloading) ? ' overloads: meets the target, but with it in a conductor or the supply is above its rating (see Recommendation);' : ''}${c.outcomes.some((o) => resonating(o) && !overloading(o)) ? ' near harmonic: meets the target, but in a step state its controller can reach the supply resonance lies within 10 % of a harmonic order (see its warnings);' : ''}${failing.size ? ' fails check: meets the target, but no variant passes the harmonic check;' : ''} plate: nameplate kvar; PF after: the PF the target is defined on (per-line: the lowest line); neutral: A after; loss: ${lossesPlaceWords(first?.verification.before.incomer ?? null)} after`,
         ...c.outcomes.filter((o) => o.notApplicable).map((o) => `${fullNames[o.arrangement]}: ${o.notApplicable}`),
         ...exemptFootnote(c),
+        ...riseFootnote(c, names),
       ]
         .map((l) => wrapText(l, '  ', '    '))
         .join('\n'),

@@ -1,5 +1,5 @@
 /** CorrectionReport → the human-readable report of `trivar correct` (fits 100 columns). */
-import { stepStatesClearWords, stepStateTable, exemptLeadingLines, lossesPlaceWords, arrangementDescriptions, arrangementNames, BUILD_VERDICT_WORDS, CORRECTION_DEFAULTS, labellerOf, meteringPointWords, reactorChanges, smallBranchWords, sparedBranchesWords, type BankSelection, type BankStep, type BeforeAfter, type BranchSizing, type CompensatorSizing, type ControllerSettings, type CorrectionReport, type CorrectionVerification, type FewerBranchesBuild, type PhaseId, type RoundingBesideReactors, type PhaseLabeller, signedPfText, linePfText, exportingLinesNote, isExportCurrentA, starWordOf, type StarWord } from '@trivar/core';
+import { everyLineReadingWords, stepStatesClearWords, stepStateTable, exemptLeadingLines, lossesPlaceWords, arrangementDescriptions, arrangementNames, BUILD_VERDICT_WORDS, CORRECTION_DEFAULTS, labellerOf, meteringPointWords, reactorChanges, smallBranchWords, sparedBranchesWords, type BankSelection, type BankStep, type BeforeAfter, type BranchSizing, type CompensatorSizing, type ControllerSettings, type CorrectionReport, type CorrectionVerification, type FewerBranchesBuild, type PhaseId, type RoundingBesideReactors, type PhaseLabeller, signedPfText, linePfText, exportingLinesNote, isExportCurrentA, starWordOf, type StarWord } from '@trivar/core';
 import { fixed, renderTable, section } from './textTable.js';
 import { headerLines } from './solveReport.js';
 import { wrapText } from './wrapText.js';
@@ -192,10 +192,11 @@ const ampsRating = (a: number): string => (Number.isInteger(a) ? String(a) : Str
 /** What C/k of a step across two lines of a three-phase board assumes (controllerSettings.ts derives it). */
 const LINE_PAIR_CK = ' per line: the step is across two lines, and each of them sees √3/2 of its branch current as reactive current, read against that line\'s voltage to the neutral';
 
-function controllerLines(c: ControllerSettings): string[] {
+/** `everyLine`: how a controller reads every line where the CT reads (everyLineReadingWords). */
+function controllerLines(c: ControllerSettings, everyLine: string): string[] {
   const band = `PF ≥ ${boundFigure(c.targetBand.minPf)} lagging${c.targetBand.maxPf === null ? (c.targetBand.leadingAllowed ? ', leading allowed' : ' up to 1.000') : ` up to ${fixed(c.targetBand.maxPf, 3)} lagging`}`;
   return [
-    `outputs: ${c.outputsUsed} of ${c.outputs} used · ${c.measurement === 'one-line' ? 'balanced steps: an ordinary controller reading one CT' : 'steps serve single lines: the controller must measure every line (one CT per line)'}`,
+    `outputs: ${c.outputsUsed} of ${c.outputs} used · ${c.measurement === 'one-line' ? 'balanced steps: an ordinary controller reading one CT' : `steps serve single lines: the controller must measure every line (${everyLine})`}`,
     `CT ${ampsRating(c.ctPrimaryA)}/${ampsRating(c.ctSecondaryA)} A${c.ctChosen ? '' : ' (given)'} at ${c.ctBasis.placeWords}; ${
       c.ctChosen ? `chosen: the next standard rating at or above 1.25 × ${c.ctBasis.currentWords}; give controller.ctPrimaryA if yours differs` : `checked against ${c.ctBasis.currentWords}`
     }`,
@@ -205,7 +206,7 @@ function controllerLines(c: ControllerSettings): string[] {
 }
 
 /** `toleranceHeld`: the build re-solved at both capacitance tolerance ends meets the target and leads no line past its bounds. */
-function selectionBlock(sel: BankSelection, label: PhaseLabeller, star: StarWord, emptyInSizing: readonly string[] = [], toleranceHeld = false): string {
+function selectionBlock(sel: BankSelection, label: PhaseLabeller, star: StarWord, emptyInSizing: readonly string[] = [], toleranceHeld = false, everyLine = 'one CT per line'): string {
   const out: string[] = [];
   out.push(
     `  delivered ${fixed(sel.deliveredKvar, 2)} kvar at the solved voltage · nameplate ${fixed(sel.nameplateKvar, 2)} kvar · ${sel.units} unit${sel.units === 1 ? '' : 's'} · ${sel.steps.filter((s) => s.output !== null).length} switched step(s)`,
@@ -226,7 +227,7 @@ function selectionBlock(sel: BankSelection, label: PhaseLabeller, star: StarWord
     ]),
   );
   out.push(branchTable(sel, label, emptyInSizing, toleranceHeld));
-  if (sel.controller) out.push(`  Controller\n${indentLines(controllerLines(sel.controller).map((l) => `  ${l}`))}`);
+  if (sel.controller) out.push(`  Controller\n${indentLines(controllerLines(sel.controller, everyLine).map((l) => `  ${l}`))}`);
   return out.join('\n');
 }
 
@@ -320,7 +321,21 @@ function pathReactanceWords(v: CorrectionVerification): string {
   if (v.after.board.system === 'single-phase') return `${x}, the reactance of the loop out on the line and back on the neutral`;
   const neutral = c.neutralReactanceOhm === null ? '' : `, and ${fixed(c.neutralReactanceOhm, 4)} Ω in the neutral for the part of the capacitor current that returns on it`;
   const unequal = c.unequalCurrents ? '; S_sc,X weighed by the current these unequal capacitors put in each conductor' : '';
+  const lines = v.voltageRise.unequalPath;
+  if (lines) return `${x} per line, the figure the orders are worked from; the lines' own paths differ (${unequalPathWords(lines, labelsOf(v))}), so no one figure is every line's${neutral}${unequal}`;
   return `${x} per line, the supply path's reactance${neutral}${unequal}`;
+}
+
+/** Each line's own path reactance, and the open delta's corner line where that is why they differ. */
+function unequalPathWords(p: NonNullable<CorrectionVerification['voltageRise']['unequalPath']>, label: PhaseLabeller): string {
+  const corner = p.openDeltaCorner === null ? '' : `; line ${label(p.openDeltaCorner)} is the open delta's corner, with no winding in its path`;
+  return `X ${p.lines.map((l) => `${label(l.phase)} ${fixed(l.reactanceOhm, 4)}`).join(', ')} Ω${corner}`;
+}
+
+/** The solved rise: the largest, or each line's where the lines' paths differ and there is no estimate to set it beside. */
+function solvedRiseWords(vr: CorrectionVerification['voltageRise'], label: PhaseLabeller): string {
+  if (vr.estimateWithheld !== 'unequal-path') return `solved ${fixed(vr.solvedPercent, 2)} %`;
+  return `solved ${vr.solvedPerLine.map((l) => `${label(l.phase)} ${fixed(l.percent, 2)} %`).join(', ')}`;
 }
 
 /** The steady rise estimate: the worst line's X·I (a capacitor's current is reactive), Q_C·X/V² where all lines share it alike, or why there is none. */
@@ -328,6 +343,8 @@ function voltageRiseEstimateWords(vr: CorrectionVerification['voltageRise'], v: 
   if (vr.shortCircuitKVA === null) return 'ideal source (none)';
   if (vr.estimateWithheld === 'reactors') return 'not estimated from Q_C/S_sc,X: the reactors lower the lines they sit on while the capacitors raise theirs, so the net kvar gives neither line\'s rise';
   if (vr.estimateWithheld === 'nothing-added') return 'none estimated, no capacitors are added';
+  if (vr.estimateWithheld === 'unequal-path' && vr.unequalPath)
+    return `not estimated: the lines' paths to the source differ (${unequalPathWords(vr.unequalPath, labelsOf(v))}), so Q_C·X/V² with one X per line is no line's rise`;
   if (vr.estimatePercent === null) return "not estimated, the supply path has no reactance (a capacitor's current raises the voltage by about I·X)";
   if (v.resonanceCapacitance.unequalCurrents && vr.estimateLine !== null) {
     const neutral = v.resonanceCapacitance.neutralReactanceOhm === null ? '' : ' plus the neutral\'s Z·I_N';
@@ -385,7 +402,7 @@ function checksBlock(v: CorrectionVerification, detuned = false): string {
   );
   const vr = v.voltageRise;
   out.push(
-    `steady voltage rise: ${voltageRiseEstimateWords(vr, v)}; solved ${fixed(vr.solvedPercent, 2)} %; flag above ${vr.limitPercent} %${vr.flagged ? '  ← FLAGGED' : ''}`,
+    `steady voltage rise: ${voltageRiseEstimateWords(vr, v)}; ${solvedRiseWords(vr, label)}; flag above ${vr.flagLevelPercent} %${vr.flagged ? '  ← FLAGGED (see Warnings)' : ''}`,
   );
   out.push(resonanceWords(v, detuned));
   // The step states under the resonance line: a table is set as it is, not wrapped.
@@ -618,7 +635,9 @@ export function renderCorrectionReport(r: CorrectionReport): string {
   }
   // Branches the bank's continuous sizing left empty (the "-" rows of its table), for the units table's note.
   const emptyInSizing = r.sizing.arrangement === 'balancing-compensator' ? [] : r.sizing.branches.filter((b) => b.element === 'none').map((b) => b.branch);
-  if (r.selection) parts.push(section('Bank as built from units') + selectionBlock(r.selection, label, starWordOf(v.before.conventions.region), emptyInSizing, v.tolerance.low.check.met && v.tolerance.high.check.leadingLines.length === 0));
+  // The controller reads where its CT is: the equipment's board, or the metering point.
+  const ctReads = r.selection?.controller?.ctBasis.place === 'metering-point' && v.metering ? v.metering.before : v.before;
+  if (r.selection) parts.push(section('Bank as built from units') + selectionBlock(r.selection, label, starWordOf(v.before.conventions.region), emptyInSizing, v.tolerance.low.check.met && v.tolerance.high.check.leadingLines.length === 0, everyLineReadingWords(ctReads)));
   if (v.metering) parts.push(meteringSection(v.metering, lineTable(v.metering, label)));
   parts.push(section('Lines, before → after (verified by re-solving the board)') + lineTable(v, label));
   parts.push(section('Board, before → after') + boardLines(v));

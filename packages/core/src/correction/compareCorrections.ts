@@ -25,6 +25,7 @@ import { CORRECTION_DEFAULTS } from './correctionDefaults.js';
 import type { CorrectionReport, CorrectionStatus } from './correctionResult.js';
 import { arrangementNames, comparisonWording } from './correctionWording.js';
 import { balanceWorsening } from './balanceWorsening.js';
+import { comparisonRiseWords } from './voltageRiseFlag.js';
 import { assertViableBoard } from '../analysis/viableOperatingPoint.js';
 import { assertBoardModel } from '../board/modelGuards.js';
 
@@ -46,6 +47,9 @@ export interface ArrangementFigures {
   readonly lossesKW: number;
   /** Cost figure used to rank (kvar-equivalents). */
   readonly cost: number;
+  /** The steady voltage rise judged against the flag level, %, and whether it is above it (VoltageRise.judgedPercent, flagged): said beside the verdict, it does not rank. */
+  readonly voltageRisePercent: number;
+  readonly voltageRiseFlagged: boolean;
 }
 
 export interface ArrangementOutcome {
@@ -119,6 +123,8 @@ export function figuresOf(r: CorrectionReport): ArrangementFigures {
     negativeSequencePercent: v.unbalance?.negativeSequenceCurrentPercent.after ?? null,
     lossesKW: v.after.losses.totalKW,
     cost: (sel?.cost.value ?? 0) + CORRECTION_DEFAULTS.reactorCostFactor * reactorKvar,
+    voltageRisePercent: v.voltageRise.judgedPercent,
+    voltageRiseFlagged: v.voltageRise.flagged,
   };
 }
 
@@ -217,7 +223,18 @@ export function recommendArrangement(outcomes: readonly ArrangementOutcome[], am
   const nothing = chosen.report.nothingToBuild;
   // The recommended build resonating near a harmonic order: none meets the target clear of one, and the verdict says it.
   const resonating = resonates(chosen) && !overloads(chosen) ? [comparisonWording.resonates(names[chosen.arrangement])] : [];
-  const notes = [...(nothing ? [nothing.why, nothing.advice] : []), ...(ownLead ? [comparisonWording.ownCapacitorsLead(ownLead.message)] : []), ...resonating, ...overloaded, ...worse];
+  // Nor that a build raises the voltage above the flag level: each such arrangement with its figure, and what it means here.
+  const rises = [chosen, ...others].filter((o) => o.figures.voltageRiseFlagged);
+  const rise = rises.length
+    ? [
+        comparisonRiseWords(
+          rises.map((o) => ({ name: names[o.arrangement], percent: o.figures.voltageRisePercent, recommended: o === chosen })),
+          chosen.report.verification.voltageRise.flagLevelPercent,
+          chosen.figures.voltageRiseFlagged ? (chosen.report.verification.voltageRise.flagReading?.words ?? null) : null,
+        ),
+      ]
+    : [];
+  const notes = [...(nothing ? [nothing.why, nothing.advice] : []), ...(ownLead ? [comparisonWording.ownCapacitorsLead(ownLead.message)] : []), ...resonating, ...overloaded, ...worse, ...rise];
   const whyAll = notes.length ? `${why}; ${notes.join('; ')}` : why;
   return { recommended: chosen.arrangement, meetsTarget, why: whyAll, rule: comparisonWording.rule };
 }

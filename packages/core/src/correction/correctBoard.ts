@@ -38,6 +38,7 @@ import { regionWords, starWordOf } from '../board/conventions/regionWords.js';
 import { assertBoardModel } from '../board/modelGuards.js';
 import { judgedNominalOf } from '../board/nominalVoltages.js';
 import { emptyBelowKvar } from './_internal/branchReadings.js';
+import { riseFlagRider } from './voltageRiseFlag.js';
 
 /** @param use `limitsOnly` for the light-load sizing, read only for its limits (see ResolvedBankOptions) */
 function sizeArrangement(board: Board, spec: CorrectionSpec & { arrangement: Arrangement }, use: { limitsOnly?: boolean; heldBranches?: readonly string[] } = {}): BankSizing | CompensatorSizing {
@@ -541,7 +542,9 @@ export function correctBoardBuilt(board: Board, spec: unknown, construction: { r
       // Meeting the PF target says nothing of what the equipment overloads: the summary says it beside the verdict.
       (verification.overloadsCaused.length ? `; but with it in, ${verification.overloadsCaused.map((o) => o.message).join('; ')}` : '') +
       // Nor of a supply resonance near a harmonic order in a state the controller can reach.
-      (status.startsWith('meets') ? resonanceSummaryClause(verification, verification.overloadsCaused.length ? 'and' : 'but') : ''),
+      (status.startsWith('meets') ? resonanceSummaryClause(verification, verification.overloadsCaused.length ? 'and' : 'but') : '') +
+      // Nor does it say what the rise does: above the flag level the verdict carries the flag beside it.
+      riseFlagRider(verification.voltageRise, 'see the warnings'),
     reasons,
     target,
     sizing,

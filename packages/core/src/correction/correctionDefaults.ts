@@ -124,8 +124,18 @@ export const CORRECTION_DEFAULTS = {
   continuousVoltageLimit: 1.1,
   /** Discharge time before a step may be switched on again, s, by practice (capacitorDischarge.ts: the rule each follows). */
   dischargeTimeS: { iec: CAPACITOR_DISCHARGE.iec.seconds, 'north-american': CAPACITOR_DISCHARGE['north-american'].seconds },
-  /** Steady rise flagged above 3 %, solved or estimated as ΔV/V ≈ Q_C/S_sc,X (common practice, no source). */
+  /**
+   * The flag level of the steady rise, 3 %, solved or estimated as ΔV/V ≈ Q_C/S_sc,X (common practice, no
+   * source): a rise above it is flagged with what it does on the board, not judged as a failure.
+   */
   voltageRiseLimitPercent: 3,
+  /**
+   * The lines' path reactances may spread over this fraction of their mean and still be read as one X per
+   * line for the first-order rise: the estimate is then off by about that much on some line, inside its own
+   * first-order accuracy; beyond it (an open delta: 0.0078 against 0.0490 Ω) only the solved rises are given
+   * (a design choice, no source).
+   */
+  unequalPathSpread: 0.05,
   /**
    * Harmonic orders a supply resonance is flagged near (within ±10 %, resonanceNearFraction) where the
    * study has no spectrum of the board: every odd order the built-in typical spectra give a few percent

@@ -599,15 +599,62 @@ export interface VoltageRise {
   /**
    * Why there is no estimate although the path has reactance: 'reactors' where the equipment holds reactors as
    * well as capacitors (a balancing compensator), which lower some lines while the capacitors raise others;
-   * 'nothing-added' where no capacitor is built (nothing carries a capacitor current); else null.
+   * 'nothing-added' where no capacitor is built (nothing carries a capacitor current); 'unequal-path' where the
+   * lines' paths to the source differ (`unequalPath`: an open delta, unequal source units or feeder conductors),
+   * so no one X per line gives each line's rise; else null.
    */
-  readonly estimateWithheld: 'reactors' | 'nothing-added' | null;
+  readonly estimateWithheld: 'reactors' | 'nothing-added' | 'unequal-path' | null;
   /** The line `estimatePercent` is worked for: the one whose voltage the capacitor currents raise most; null without an estimate. */
   readonly estimateLine: PhaseId | null;
   /** Largest rise of a line-to-neutral voltage magnitude in the solved board, % of nominal. */
   readonly solvedPercent: number;
-  readonly limitPercent: number;
+  /** Each line's solved rise, % of nominal (line-to-neutral; to the centroid of the line voltages on a 3-wire board). */
+  readonly solvedPerLine: readonly { readonly phase: PhaseId; readonly percent: number }[];
+  /**
+   * Where the supply path's reactance differs between the lines by more than UNEQUAL_PATH_SPREAD of its mean:
+   * each line's own (supplyPathImpedancesPerLine), and the open delta's corner line where that is why; else null.
+   */
+  readonly unequalPath: { readonly lines: readonly { readonly phase: PhaseId; readonly reactanceOhm: number }[]; readonly openDeltaCorner: PhaseId | null } | null;
+  /**
+   * The flag level, % (CorrectionSpec.voltageRiseLimitPercent): a steady rise above it is flagged for a second
+   * look at what it does on this board (`flagReading`); it is not a limit the verdict is judged on.
+   */
+  readonly flagLevelPercent: number;
+  /** The figure judged against the flag level, %: the larger of the estimate and the solved rise (the solved rise alone without an estimate). */
+  readonly judgedPercent: number;
+  /** True where `judgedPercent` is above `flagLevelPercent`. */
   readonly flagged: boolean;
+  /** What the flagged rise means on this board, in figures and words; null where the rise is not flagged. */
+  readonly flagReading: VoltageRiseFlagReading | null;
+}
+
+/** A range of the board's own voltages, % of nominal. */
+export interface BoardVoltageRange {
+  readonly lowestPercent: number;
+  readonly highestPercent: number;
+}
+
+/**
+ * What a rise above the flag level does on the board it is flagged on (voltageRiseFlag.ts): the board's own
+ * voltages (those its voltage check judges, loads left out) at design load without and with the equipment,
+ * and with the board's loads off and every step still in, against the board's band.
+ */
+export interface VoltageRiseFlagReading {
+  readonly designLoad: { readonly before: BoardVoltageRange; readonly after: BoardVoltageRange };
+  /** The board's loads (and those of the boards it feeds) off: its highest voltage without the equipment and with every step in, % of nominal. */
+  readonly noLoad: { readonly withoutPercent: number; readonly everyStepInPercent: number };
+  /** The band the board's voltages are judged in, % of nominal. */
+  readonly band: { readonly lowPercent: number; readonly highPercent: number };
+  /**
+   * At design load: 'towards-nominal' where the equipment leaves the board nearer nominal than it was (its
+   * farthest voltage from nominal comes closer) and inside its band; 'above-band' where it puts a voltage above
+   * the band; else 'within-band'.
+   */
+  readonly atDesignLoad: 'towards-nominal' | 'within-band' | 'above-band';
+  /** With the loads off and every step in: above the band or within it. */
+  readonly atNoLoad: 'within-band' | 'above-band';
+  /** The reading in words, for the warning and the comparison. */
+  readonly words: string;
 }
 
 export interface LightLoadCheck {

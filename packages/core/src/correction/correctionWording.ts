@@ -249,7 +249,9 @@ export const warningText = {
     `at light load the fixed part, ${reactorKvar.toFixed(2)} kvar inductive net (its reactors stay connected), leaves ${lines.map((l) => `line ${l.phase} at PF ${f3(l.pf)} lagging${l.before === null ? '' : ` (${f3(l.before)} without the equipment)`}`).join(', ')}: switch the reactors with the load, or expect this reactive draw whenever the board runs light`,
   lightLoadLeading: (phases: readonly PhaseLabel[]) =>
     `at light load the fixed part makes line${phases.length > 1 ? 's' : ''} ${phases.join(', ')} lead (checked at the high end of the capacitance tolerance)`,
-  voltageRise: (what: string, percent: number, limit: number) => `${what} raises the board voltage by about ${percent.toFixed(2)} %, above the ${f1(limit)} % flag level`,
+  /** @param reading what the rise does on the board (voltageRiseFlag.ts), where it was read */
+  voltageRise: (what: string, percent: number, level: number, reading?: string) =>
+    `${what} raises the board voltage by about ${distinctDigits(percent, level, 2)[0]} %, above the ${trimmed(level)} % flag level${reading ? ` (a level for a second look, not a limit the verdict is judged on): ${reading}` : ''}`,
   /** @param capacitance what resonates: the bank, the leading loads already on the board, or both */
   lowResonance: (orders: readonly number[], capacitance: 'bank' | 'board' | 'both' = 'bank', near: readonly number[] = [], states: OtherStepStates = 'unknown') =>
     `${capacitance === 'bank' ? 'the bank' : capacitance === 'board' ? "the board's own leading loads (capacitance already in service)" : "the bank with the board's own leading loads"} and the supply inductance resonate near harmonic order${orders.length > 1 ? 's' : ''} ${orders.map((h) => h.toFixed(1)).join(' and ')}${near.length ? ` (within 10 % of the ${near.map(ordinal).join(' and the ')})` : ''}, estimated from the supply path's reactances and the capacitances: with harmonic-producing loads on the board this needs a harmonic study and probably a detuned bank${
@@ -650,6 +652,19 @@ export const lossesPlaceWords = (incomer: { readonly fedFrom: string } | null): 
   }
   return incomer ? `its feeder from ${incomer.fedFrom}` : 'source + feeder';
 };
+
+/**
+ * How a controller whose steps serve single lines reads every line: one CT per line, or, where its CT's place
+ * has three lines and no neutral, two CTs, the third line's current being minus the sum of the other two
+ * (Blondel: n − 1 measuring elements on n wires). `reading`: the solved board where the CT reads (the
+ * equipment's board, or the metering point's).
+ */
+export function everyLineReadingWords(reading: { readonly phases: readonly unknown[]; readonly neutral: unknown }): string {
+  checkObjectArgument(reading, 'reading', 'a solved board { phases, neutral } where the CT reads (verification.before, or verification.metering.before)', ['phases', 'neutral']);
+  checkListArgument(reading.phases, 'reading.phases', 'the board\'s lines as solved');
+  const threeWire = reading.phases.length === 3 && reading.neutral === null;
+  return threeWire ? "two CTs do on a board without a neutral: the third line's current is minus the sum of the other two, Blondel's n − 1 elements on n wires; or one CT per line" : 'one CT per line';
+}
 
 /** The lines a verdict passes only under the "lead no more than before" rule: they led before correction and still lead. */
 export const exemptLeadingLines = (check: { readonly leadingBefore: readonly PhaseId[]; readonly lines: readonly { readonly phase: PhaseId; readonly sense: string }[] }): PhaseId[] => {

@@ -35,6 +35,7 @@ import { dutyRatio } from './capacitorDuty.js';
 import type { CapacitorDuty, HarmonicsReport } from './harmonicsResult.js';
 import { assertBoardModel } from '../board/modelGuards.js';
 import { conventionsOf } from '../board/conventions/boardConventions.js';
+import { riseFlagRider } from '../correction/voltageRiseFlag.js';
 
 const capitalised = (text: string) => text.charAt(0).toUpperCase() + text.slice(1);
 
@@ -182,10 +183,12 @@ function asDetuned(report: CorrectionReport, p: number, percent: number, plainSe
     report.status === 'already-meets-target' || report.status === 'no-suitable-units' || report.status === 'nothing-to-build'
       ? reportSummary[report.status](what)
       : reportSummary[report.status](what, selection.deliveredKvar, nameplate);
+  // The rise above its flag level stays beside the verdict, as correctBoard's summary has it.
+  const summaryWithFlag = summary + riseFlagRider(report.verification.voltageRise, 'see the warnings');
   const withoutEstimate = (ws: readonly CorrectionWarning[]) => ws.filter((w) => w.code !== 'resonance' && w.code !== 'resonance-step-state');
   return {
     ...report,
-    summary,
+    summary: summaryWithFlag,
     warnings: withoutEstimate(report.warnings),
     verification: {
       ...report.verification,

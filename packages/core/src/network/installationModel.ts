@@ -116,6 +116,28 @@ export function supplyPathImpedance(board: Board): ComplexValue {
 }
 
 /**
+ * The same path line by line, in the order of `phases`: each line's own source impedance (a bank of
+ * unequal units, an open delta's windings) and its own conductor of every feeder on the way. On an open
+ * delta the line at the windings' common corner has no winding in its path: with three wires that
+ * per-line form is exact, since each winding carries the current of the one line it alone feeds.
+ * `supplyPathImpedance` gives one figure for all the lines, the mean of each part.
+ */
+export function supplyPathImpedancesPerLine(board: Board): ComplexValue[] {
+  const place = board.installation;
+  const main = !place || place.boardIndex === 0 ? board : place.installation.main;
+  const lineOf = (zs: readonly ComplexValue[] | undefined, flat: ComplexValue, k: number) => zs?.[k] ?? flat;
+  return board.phases.map((_, k) => {
+    let z = add(lineOf(main.sourceImpedances, main.sourceImpedance, k), lineOf(main.lineImpedances, main.lineImpedance, k));
+    if (!place || place.boardIndex === 0) return z;
+    for (let b = place.boardIndex; b !== 0; b = place.installation.subBoards[b - 1]!.fedFrom) {
+      const feeder = b === place.boardIndex ? (board.lineImpedances ?? [board.lineImpedance]) : place.installation.subBoards[b - 1]!.feeder.lineImpedances;
+      z = add(z, lineOf(feeder, feeder[0]!, k));
+    }
+    return z;
+  });
+}
+
+/**
  * Series impedance of the neutral from a board back to the source star point: the board's own
  * feeder neutral, every feeder neutral on the way up, the service feeder's, and the source's
  * star-point impedance (its zero-sequence part, which a neutral current flows through). Null on a

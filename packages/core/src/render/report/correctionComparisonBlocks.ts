@@ -11,6 +11,7 @@ import type { HarmonicComparison } from '../../harmonics/correctWithHarmonics.js
 import { arrangementNames } from '../../correction/correctionWording.js';
 import type { Region } from '../../board/conventions/region.js';
 import { fixed } from '../svgText.js';
+import { levelText, riseFigureText } from '../../correction/voltageRiseFlag.js';
 import type { ReportBlock, ReportSection } from './reportDocument.js';
 
 const VERDICT_WORDS: Readonly<Record<string, string>> = {
@@ -77,7 +78,8 @@ export function correctionComparisonBlocks(c: CorrectionComparison | HarmonicCom
         const noAfter = (o.report.selection?.units ?? 0) === 0 && o.report.status !== 'already-meets-target';
         return withVariant([
           name,
-          VERDICT_WORDS[o.report.status] ?? o.report.status,
+          // A build above the rise's flag level carries the flag in its verdict, with the figure.
+          `${VERDICT_WORDS[o.report.status] ?? o.report.status}${!noAfter && f.voltageRiseFlagged ? `; voltage rise ${riseFigureText(f.voltageRisePercent, o.report.verification.voltageRise.flagLevelPercent)} %, above the ${levelText(o.report.verification.voltageRise.flagLevelPercent)} % flag level` : ''}`,
           built ? fixed(f.deliveredKvar, 1) : dash,
           f.reactorKvar > 0 ? fixed(f.reactorKvar, 1) : dash,
           built ? fixed(f.nameplateKvar, 1) : dash,

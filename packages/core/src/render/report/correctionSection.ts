@@ -7,7 +7,8 @@ import type { ControllerSettings, CorrectionReport } from '../../correction/corr
 import type { CorrectionComparison } from '../../correction/compareCorrections.js';
 import type { HarmonicCorrectionReport } from '../../harmonics/correctWithHarmonics.js';
 import { correctionComparisonBlocks } from './correctionComparisonBlocks.js';
-import { arrangementDescriptions, arrangementNames, meteringPointWords, stepStatesClearWords, stepStateTable } from '../../correction/correctionWording.js';
+import { arrangementDescriptions, arrangementNames, everyLineReadingWords, meteringPointWords, stepStatesClearWords, stepStateTable } from '../../correction/correctionWording.js';
+import { levelText } from '../../correction/voltageRiseFlag.js';
 import { fixed } from '../svgText.js';
 import { exportingLinesNote, isExportCurrentA, linePfText } from '../powerFactorText.js';
 import { renderPhasorDiagram } from '../renderPhasorDiagram.js';
@@ -36,6 +37,16 @@ const arrangementWords = (report: CorrectionReport): string => {
 export function lossChangeWords(beforeKW: number, afterKW: number, reductionKW: number): string {
   const change = Number(fixed(Math.abs(reductionKW), 3)) === 0 ? 'no change' : reductionKW > 0 ? `saves ${fixed(reductionKW, 3)} kW` : `adds ${fixed(-reductionKW, 3)} kW`;
   return `${fixed(beforeKW, 3)} → ${fixed(afterKW, 3)} kW (${change})`;
+}
+
+/**
+ * The steady rise beside its flag level: the solved figure, the estimate where there is one (the larger is
+ * what is judged), and where it is above the level, that the warnings say what it does on this board.
+ */
+function riseFact(r: CorrectionReport['verification']['voltageRise']): string {
+  const estimate = r.estimatePercent === null ? '' : `, about ${fixed(r.estimatePercent, 2)} % estimated`;
+  const level = `the ${levelText(r.flagLevelPercent)} % flag level`;
+  return `${fixed(r.solvedPercent, 2)} % solved${estimate}; ${r.flagged ? `above ${level} (see the warnings below)` : `not above ${level}`}`;
 }
 
 /** A PF before → after; none where no power flows (a PF of nothing is not defined). */
@@ -74,13 +85,14 @@ function equipmentTable(report: CorrectionReport): ReportBlock | null {
 
 /** Where the target is measured, when that is not the equipment's board, and the PF reached there. */
 /** What the installer sets on the bank's controller (the text report's Controller lines, as facts). */
-function controllerFacts(c: ControllerSettings, system: string): ReportBlock {
+/** `everyLine`: how a controller reads every line where the CT reads (everyLineReadingWords). */
+function controllerFacts(c: ControllerSettings, system: string, everyLine: string): ReportBlock {
   const band = `PF at least ${fixed(c.targetBand.minPf, 3)} lagging${c.targetBand.maxPf === null ? (c.targetBand.leadingAllowed ? ', leading allowed' : ', never leading') : `, at most ${fixed(c.targetBand.maxPf, 3)} lagging`}`;
   const amps = (a: number) => (Number.isInteger(a) ? String(a) : fixed(a, 1));
   return {
     kind: 'facts',
     items: [
-      ['Controller outputs', `${c.outputsUsed} of ${c.outputs} used; ${c.measurement === 'one-line' ? (system === 'single-phase' ? 'read from one CT on the line' : 'balanced steps, read from one CT') : 'steps serving single lines: the controller measures every line (a CT on each)'}`],
+      ['Controller outputs', `${c.outputsUsed} of ${c.outputs} used; ${c.measurement === 'one-line' ? (system === 'single-phase' ? 'read from one CT on the line' : 'balanced steps, read from one CT') : `steps serving single lines: the controller measures every line (${everyLine})`}`],
       ['Current transformer', `${amps(c.ctPrimaryA)}/${amps(c.ctSecondaryA)} A${c.ctChosen ? '' : ' (given)'} at ${c.ctBasis.placeWords}; ${c.ctChosen ? `the next standard primary at or above 1.25 × ${c.ctBasis.currentWords}; use yours if it differs` : `checked against ${c.ctBasis.currentWords}`}`],
       ['Response threshold (C/k)', `${fixed(c.responseThresholdA, 3)} A for the smallest step (${fixed(c.smallestStepKvar, 2)} kvar at nominal voltage)${c.thresholdBasis === 'line-pair' ? ", per line: the step is across two lines, and each of them sees √3/2 of its branch current as reactive current, read against that line's voltage to the neutral" : ''}; set ${fixed(c.responseSettingA, 3)} A (${c.settingFraction} × C/k)`],
       ['Power-factor band', band],
@@ -192,14 +204,14 @@ export function correctionSection(report: CorrectionReport, comparison: Correcti
       kind: 'facts',
       items: [
         ['Arrangement', arrangementWords(report)],
-        ['Outcome', report.status.replace(/-/g, ' ')],
+        ['Outcome', `${report.status.replace(/-/g, ' ')}${v.voltageRise.flagged ? `; voltage rise above the ${levelText(v.voltageRise.flagLevelPercent)} % flag level` : ''}`],
         ...meteringFacts(report),
         ['Power factor, vector', pfChange(v.powerFactor.vector)],
         ...(v.powerFactor.effective ? ([['Power factor, effective (IEEE 1459)', `${fixed(v.powerFactor.effective.before, 3)} → ${fixed(v.powerFactor.effective.after, 3)}`]] as [string, string][]) : []),
         ...(v.neutralCurrentA ? ([['Neutral current', `${fixed(v.neutralCurrentA.before, 1)} → ${fixed(v.neutralCurrentA.after, 1)} A`]] as [string, string][]) : []),
         ['Apparent power released at the source', `${fixed(v.releasedKVA.source, 2)} kVA`],
         [v.before.incomer ? `Losses in the feeder from ${v.before.incomer.fedFrom}` : 'Losses in source and feeder', lossChangeWords(v.before.losses.totalKW, v.after.losses.totalKW, v.lossReductionKW)],
-        ['Voltage rise from the capacitors', `${fixed(v.voltageRise.solvedPercent, 2)} % (limit ${fixed(v.voltageRise.limitPercent, 1)} %)`],
+        ['Voltage rise from the capacitors', riseFact(v.voltageRise)],
       ],
     },
   ];
@@ -207,7 +219,7 @@ export function correctionSection(report: CorrectionReport, comparison: Correcti
   const equipment = equipmentTable(report);
   if (equipment) blocks.push(equipment);
   const controller = report.selection?.controller;
-  if (controller) blocks.push(controllerFacts(controller, v.before.board.system));
+  if (controller) blocks.push(controllerFacts(controller, v.before.board.system, everyLineReadingWords(controller.ctBasis.place === 'metering-point' && v.metering ? v.metering.before : v.before)));
   blocks.push({
     kind: 'table',
     caption: v.lines.length === 1 ? 'The line before and after' : 'Each line before and after',
@@ -261,6 +273,12 @@ function pathReactanceWords(report: CorrectionReport): string {
   if (report.verification.before.board.system === 'single-phase') return `${x}, the loop out on the line and back on the neutral`;
   const neutral = c.neutralReactanceOhm === null ? '' : `, and ${fixed(c.neutralReactanceOhm, 4)} Ω in the neutral for the part of the capacitor current that returns on it`;
   const unequal = c.unequalCurrents ? '; S_sc,X weighed by the current these unequal capacitors put in each conductor' : '';
+  const lines = report.verification.voltageRise.unequalPath;
+  if (lines) {
+    const label = labellerOf(report.verification.before.conventions.phaseNames);
+    const corner = lines.openDeltaCorner === null ? '' : `; line ${label(lines.openDeltaCorner)} is the open delta's corner, with no winding in its path`;
+    return `${x} per line, the figure the orders are worked from; the lines' own paths differ (${lines.lines.map((l) => `${label(l.phase)} ${fixed(l.reactanceOhm, 4)}`).join(', ')} Ω${corner}), so no one figure is every line's${neutral}${unequal}`;
+  }
   return `${x} per line${neutral}${unequal}`;
 }
 
