@@ -42,7 +42,8 @@ describe('the comparison carries each arrangement’s rise', () => {
       expect(rise.flagLevelPercent).toBe(3);
       expect(rise).not.toHaveProperty('limitPercent');
     }
-    for (const name of ['star bank', 'delta bank', 'compensator']) expect(text).toMatch(new RegExp(`\\n  ${name} +meets\\* `));
+    // The verdict word may be "near harmonic" (a step state resonating near one): the rise mark sits beside it either way.
+    for (const name of ['star bank', 'delta bank', 'compensator']) expect(text).toMatch(new RegExp(`\\n  ${name} +(meets|near harmonic)\\* `));
     const figures = json.outcomes.map((o: { figures: { voltageRisePercent: number } }) => o.figures.voltageRisePercent.toFixed(2));
     expect(flat(text)).toContain(`*: raises the board voltage above the 3 % flag level at design load: star bank ${figures[0]} %, delta bank ${figures[1]} %, compensator ${figures[2]} %`);
   });
@@ -78,8 +79,8 @@ describe('one arrangement: the verdict carries the flag', () => {
     const json = JSON.parse(runTrivar(['correct', BOARD, '--arrangement', 'star-bank', '--json']).stdout);
     const rise = json.verification.voltageRise;
     expect(rise.flagged).toBe(true);
-    expect(json.summary).toMatch(/meets the target; its steady voltage rise, about 5\.79 %, is above the 3 % flag level \(see the warnings\)$/);
-    expect(flat(r.stdout)).toContain(`MEETS THE TARGET — ${json.summary}`);
+    expect(json.summary).toMatch(/^star bank: [\d.]+ kvar delivered \([\d.]+ kvar nameplate\) meets the target;.*; its steady voltage rise, about 5\.79 %, is above the 3 % flag level \(see the warnings\)$/);
+    expect(flat(r.stdout)).toMatch(new RegExp(`MEETS THE TARGET(, BUT [A-Z ]+)? — ${json.summary.replace(/[.*+?^${}()|[\]\\]/g, '\\$&')}`));
     expect(flat(r.stdout)).toMatch(/solved 5\.79 %; flag above 3 % ← FLAGGED \(see Warnings\)/);
     const warning = json.warnings.find((w: { code: string }) => w.code === 'voltage-rise');
     expect(warning.message).toContain('raises the board voltage by about 5.79 %, above the 3 % flag level (a level for a second look, not a limit the verdict is judged on): ');
@@ -98,8 +99,8 @@ describe('one arrangement: the verdict carries the flag', () => {
     expect(delta.summary).not.toContain('flag level');
     expect(json.why).toMatch(/note: the star bank would raise the board voltage by about 5\.79 % at design load, above the 5 % flag level$/);
     const text = runTrivar(['correct', file]).stdout;
-    expect(text).toMatch(/\n  star bank +meets\* /);
-    expect(text).toMatch(/\n  delta bank +meets +\d/);
+    expect(text).toMatch(/\n  star bank +(meets|near harmonic)\* /);
+    expect(text).toMatch(/\n  delta bank +(meets|near harmonic) +\d/);
   });
 
   it('a tighter band (±5 %): the unloaded board with every step in is above it, and the words say what that asks of the controller', () => {
