@@ -681,9 +681,16 @@ export interface CorrectionVerification {
    */
   readonly resonanceStepStates: StepStateResonance | null;
   /**
-   * True where the resonance estimate lies within the band of a watched order with every step in or in any
-   * state the controller can reach: what the resonance warnings say, the verdict's headline and the
-   * comparison's ranking weigh. False where the harmonic check's scan of every step combination decides.
+   * The watched orders that headline the verdict: within the band of a resonance with every step in or in a
+   * state the controller can reach, with significant typical content (CORRECTION_DEFAULTS.resonanceHeadlineOrders),
+   * and able to reach the capacitance (the triplens only through a neutral branch, a split-phase or single-phase
+   * board, or loads across two lines: resonanceExcitation.ts). Orders near only in the warnings are not here.
+   */
+  readonly resonanceHeadlineOrders: readonly number[];
+  /**
+   * True where `resonanceHeadlineOrders` is not empty: what the verdict's headline and the comparison's ranking
+   * weigh (the warnings name every watched order near). False where the harmonic check's scan of every step
+   * combination decides.
    */
   readonly resonanceNearHarmonic: boolean;
   readonly lightLoad: LightLoadCheck | null;

@@ -216,14 +216,21 @@ export function stepStateInWords(st: Pick<StepStateOrders, 'outputsIn'>, fixedPa
  * the controller can reach (CorrectionVerification.resonanceNearHarmonic); empty where it does not.
  */
 export function resonanceSummaryClause(
-  v: { readonly resonanceNearHarmonic: boolean; readonly resonanceNearOrders: readonly number[]; readonly resonanceStepStates: StepStateResonance | null },
+  v: {
+    readonly resonanceNearHarmonic: boolean;
+    readonly resonanceNearOrders: readonly number[];
+    readonly resonanceHeadlineOrders: readonly number[];
+    readonly resonanceStepStates: StepStateResonance | null;
+  },
   /** 'and' where the summary already has its "but" (an overload). */
   joined: 'but' | 'and' = 'but',
 ): string {
   if (!v.resonanceNearHarmonic) return '';
-  const partial = v.resonanceStepStates?.states.slice(1).filter((st) => st.nearOrders.length > 0) ?? [];
-  const orders = [...new Set([...v.resonanceNearOrders, ...partial.flatMap((st) => st.nearOrders)])].sort((a, b) => a - b);
-  const where = [...(v.resonanceNearOrders.length ? ['with every step in'] : []), ...(partial.length ? [`in ${partial.length} state${partial.length === 1 ? '' : 's'} with fewer steps in`] : [])];
+  // Only the orders that headline (significant, able to reach the bank); the warnings name the others.
+  const orders = v.resonanceHeadlineOrders;
+  const headlines = (near: readonly number[]) => near.some((h) => orders.includes(h));
+  const partial = v.resonanceStepStates?.states.slice(1).filter((st) => headlines(st.nearOrders)) ?? [];
+  const where = [...(headlines(v.resonanceNearOrders) ? ['with every step in'] : []), ...(partial.length ? [`in ${partial.length} state${partial.length === 1 ? '' : 's'} with fewer steps in`] : [])];
   const named = orders.map(ordinal);
   const list = named.length === 1 ? `the ${named[0]} harmonic` : `the ${named.slice(0, -1).join(', ')} and ${named.at(-1)} harmonics`;
   return `; ${joined} its supply resonance lies within 10 % of ${list} ${where.join(' and ')} (see the warnings)`;

@@ -30,6 +30,7 @@ import { overloadsCaused } from './overloadsCaused.js';
 import { assertBoardModel } from '../board/modelGuards.js';
 import { judgedNominalOf } from '../board/nominalVoltages.js';
 import { WARNING_THRESHOLDS } from '../analysis/boardWarnings.js';
+import { headlineResonanceOrders } from './resonanceExcitation.js';
 import { distinctOrders, resonanceNearOrders, stepStateResonance, watchedOrdersNear } from './stepStateResonance.js';
 
 export interface VerifyCorrectionOptions {
@@ -298,6 +299,9 @@ export function verifyCorrection(board: Board, options: VerifyCorrectionOptions)
     warn('resonance', warningText.lowResonance(nearResonances, resonance.onBoardKvar > 0 ? (resonance.addedKvar > 0 ? 'both' : 'board') : 'bank', nearOrders, statesChecked), nearResonances[0]!, null);
   if (stepStates && nearPartial.length)
     warn('resonance-step-state', warningText.stepStateResonance(nearPartial, stepStates.fixedPart, nearResonances.length > 0, null, resonance.onBoardKvar > 0), nearPartial[0]!.lowestOrder, null);
+  // The orders that headline the verdict: near in some state, with significant typical content, and able to reach this capacitance.
+  const headline = new Set(headlineResonanceOrders(board, [...boardCapacitors, ...equipment.flatMap((g) => g.branches.filter((b) => b.susceptanceS > 0))]));
+  const headlineNear = [...new Set([...nearOrders, ...nearPartial.flatMap((st) => st.nearOrders)])].filter((h) => headline.has(h)).sort((a, b) => a - b);
   if (ssc === null && capacitorKvar > 0) warn('ideal-source', warningText.idealSource);
   const overloads = overloadsCaused(before, after);
   for (const o of overloads) warn('overload-caused', warningText.overloadCaused(o.message), o.value, o.threshold);
@@ -400,7 +404,8 @@ export function verifyCorrection(board: Board, options: VerifyCorrectionOptions)
     resonanceNearOrders: nearOrders,
     resonanceCapacitance: resonance,
     resonanceStepStates: stepStates,
-    resonanceNearHarmonic: nearResonances.length > 0 || nearPartial.length > 0,
+    resonanceHeadlineOrders: headlineNear,
+    resonanceNearHarmonic: headlineNear.length > 0,
     lightLoad,
     overloadsCaused: overloads.map((o) => ({ code: o.code, message: o.message })),
     warnings,
