@@ -345,6 +345,12 @@ function otherOrdersWords(v: CorrectionVerification): string {
   return others.length ? `; the network also resonates at h = ${others.map((h) => fixed(h, 2)).join(', ')}` : '';
 }
 
+/**
+ * Four significant figures (whole units from 1000): enough that √(S_sc,X/Q_C) worked from the printed
+ * figures gives the printed order to its two decimals (each figure within 0.01 % moves h by under 0.001).
+ */
+const handFigure = (x: number): string => (Math.abs(x) >= 1000 ? x.toFixed(0) : x.toPrecision(4));
+
 /** The supply resonance line: its estimate and what it is worked from, or why there is none. */
 function resonanceWords(v: CorrectionVerification, detuned: boolean): string {
   const head = 'parallel resonance with the supply';
@@ -367,12 +373,15 @@ function resonanceWords(v: CorrectionVerification, detuned: boolean): string {
     ...(c.addedKvar > 0 ? [`${fixed(c.addedKvar, 1)} kvar added`] : []),
     ...(c.onBoardKvar > 0 ? [`${fixed(c.onBoardKvar, 1)} kvar of leading loads already on the board (${c.loadsOnBoard.join(', ')}), taken as capacitance`] : []),
   ];
-  const reactors = c.reactorKvar > 0 ? `; Q_L = ${fixed(c.reactorKvar, 1)} kvar of reactors added` : '';
-  const path = `; X_path = ${pathReactanceWords(v)} (S_sc,X = ${fixed(c.reactanceShortCircuitKVA ?? 0, 0)} kVA; its resistance damps the peak but hardly moves it)`;
+  // The orders are worked from the capacitance, so Q_C (and Q_L) are given at nominal voltage, the figures
+  // √(S_sc,X/Q_C) is checked with by hand; the kvar at the solved voltage is what the voltage-rise line uses.
+  const reactors = c.reactorKvar > 0 ? `; Q_L = ${handFigure(c.reactorKvarAtNominalV)} kvar of reactors added at nominal voltage (${fixed(c.reactorKvar, 1)} kvar at the solved voltage)` : '';
+  const path = `; X_path = ${pathReactanceWords(v)} (S_sc,X = ${handFigure(c.reactanceShortCircuitKVA ?? 0)} kVA; its resistance damps the peak but hardly moves it)`;
   const near = v.resonanceNearOrders.length ? `; within 10 % of order ${v.resonanceNearOrders.join(', ')}` : '';
   // Estimated with all the added capacitance in: fewer steps in raise every order (less capacitance), each state below.
   const states = c.addedKvar > 0 ? (v.resonanceStepStates ? '; with every step in (each step state below)' : '; with every step in (with fewer steps in, the orders lie higher)') : '';
-  return `${head} at about ${figure}${near}; Q_C = ${parts.join(' + ')}${reactors}${path}${states}`;
+  const qC = `Q_C = ${handFigure(c.capacitorKvarAtNominalV)} kvar at nominal voltage, what h is worked from (${parts.join(' + ')} at the solved voltage)`;
+  return `${head} at about ${figure}${near}; ${qC}${reactors}${path}${states}`;
 }
 
 /** `detuned`: the bank's steps sit behind reactors, so √(S_sc/Qc) does not apply (the harmonic check covers it). */

@@ -579,6 +579,13 @@ export interface ResonanceCapacitance {
   readonly lowestBelowSingleNode: boolean;
   /** The single-node figure √((S_sc,X + Q_L)/Q_C) at nominal voltage (capacitorPathReactance.ts); null without capacitors. */
   readonly singleNodeOrder: number | null;
+  /**
+   * Q_C of the capacitance (added and on the board) at nominal voltage, kvar: what every order is worked from (the
+   * capacitance, not the kvar it delivers at the solved voltage, `totalKvar`); 0 where the path has no estimate.
+   */
+  readonly capacitorKvarAtNominalV: number;
+  /** Q_L of the reactors added at nominal voltage, kvar, as `singleNodeOrder` takes it; 0 without reactors or estimate. */
+  readonly reactorKvarAtNominalV: number;
   /** The neutral path's reactance, ohm, where a capacitor is tied to the neutral (its common mode swings against it); else null. */
   readonly neutralTieReactanceOhm: number | null;
 }

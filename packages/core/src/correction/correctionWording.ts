@@ -27,6 +27,21 @@ const f3 = (x: number) => x.toFixed(3);
 /** 3 → "3rd", 11 → "11th", 21 → "21st". */
 const ordinal = (n: number): string => `${n}${n % 100 >= 11 && n % 100 <= 13 ? 'th' : ['th', 'st', 'nd', 'rd'][n % 10] ?? 'th'}`;
 
+/** Resonance orders printed so that they tell apart: one decimal, or more (up to three) where two would print alike (6.77 and 6.84, not 6.8 and 6.8). */
+export function orderFigures(orders: readonly number[]): string[] {
+  for (let decimals = 1; decimals < 3; decimals++) {
+    const printed = orders.map((h) => h.toFixed(decimals));
+    if (new Set(printed).size === printed.length) return printed;
+  }
+  return orders.map((h) => h.toFixed(3));
+}
+
+/** Each resonance order that lies near a watched order, with the order it is near: "6.54 (the 7th)"; `near` gives an order's watched orders. */
+export function ordersNearWords(orders: readonly number[], near: (h: number) => readonly number[]): string[] {
+  const printed = orderFigures(orders);
+  return orders.flatMap((h, k) => (near(h).length ? [`${printed[k]} (the ${near(h).map(ordinal).join(' and the ')})`] : []));
+}
+
 /**
  * A figure beside the bound it misses, with enough decimals that the two read
  * differently (0.9499 beside 0.950, never "0.950, below the target 0.950").
@@ -259,7 +274,7 @@ export const warningText = {
   voltageRise: (what: string, percent: number, limit: number) => `${what} raises the board voltage by about ${percent.toFixed(2)} %, above the ${f1(limit)} % flag level`,
   /** @param capacitance what resonates: the bank, the leading loads already on the board, or both */
   lowResonance: (orders: readonly number[], capacitance: 'bank' | 'board' | 'both' = 'bank', near: readonly number[] = [], states: OtherStepStates = 'unknown') =>
-    `${capacitance === 'bank' ? 'the bank' : capacitance === 'board' ? "the board's own leading loads (capacitance already in service)" : "the bank with the board's own leading loads"} and the supply inductance resonate near harmonic order${orders.length > 1 ? 's' : ''} ${orders.map((h) => h.toFixed(1)).join(' and ')}${near.length ? ` (within 10 % of the ${near.map(ordinal).join(' and the ')})` : ''}, estimated from the supply path's reactances and the capacitances: with harmonic-producing loads on the board this needs a harmonic study and probably a detuned bank${
+    `${capacitance === 'bank' ? 'the bank' : capacitance === 'board' ? "the board's own leading loads (capacitance already in service)" : "the bank with the board's own leading loads"} and the supply inductance resonate near harmonic order${orders.length > 1 ? 's' : ''} ${orderFigures(orders).join(' and ')}${near.length ? ` (within 10 % of the ${near.map(ordinal).join(' and the ')})` : ''}, estimated from the supply path's reactances and the capacitances: with harmonic-producing loads on the board this needs a harmonic study and probably a detuned bank${
       capacitance === 'board' ? '' : otherStatesWords(states)
     }`,
   /**
@@ -283,7 +298,7 @@ export const warningText = {
         : st.alike.length <= 3
           ? ` (or ${st.alike.map((o) => o.join('+')).join(', ')}: the same capacitance)`
           : ` (or any of ${st.alike.length} other combinations with the same capacitance)`;
-      return `${stepStateInWords(st, fixedPart)}${alike}, ${st.capacitorKvarAtNominalV.toFixed(1)} kvar, near ${st.resonancesNear.map((h) => h.toFixed(1)).join(' and ')} (the ${st.nearOrders.map(ordinal).join(' and the ')})`;
+      return `${stepStateInWords(st, fixedPart)}${alike}, ${st.capacitorKvarAtNominalV.toFixed(1)} kvar, near ${orderFigures(st.resonancesNear).join(' and ')} (the ${st.nearOrders.map(ordinal).join(' and the ')})`;
     });
     const more = states.length > NAMED_STATES ? `; and ${states.length - NAMED_STATES} more state${states.length - NAMED_STATES === 1 ? '' : 's'} (see the step-state table)` : '';
     if (scanned)
@@ -292,7 +307,7 @@ export const warningText = {
   },
   /** The same resonance where the harmonic check scanned the plain bank in the same study: the estimate defers to the scan. */
   lowResonanceScanned: (orders: readonly number[], near: readonly number[], lowestPeak: number | null, passes: boolean) =>
-    `the estimate from the supply path's reactances puts the resonance of the capacitance with the supply near harmonic order${orders.length > 1 ? 's' : ''} ${orders.map((h) => h.toFixed(1)).join(' and ')}${near.length ? ` (within 10 % of the ${near.map(ordinal).join(' and the ')})` : ''}; the harmonic check of this study ${lowestPeak === null ? 'found no resonance peak in its range' : `scanned its lowest peak at h = ${lowestPeak.toFixed(2)}`} and ${passes ? 'passes the plain bank: no order in the spectra entered lies near a peak. The spectra are typical or entered ones: measure the real spectrum of the board before installing, and again when harmonic-producing loads are added' : 'fails the plain bank (see the harmonic check)'}`,
+    `the estimate from the supply path's reactances puts the resonance of the capacitance with the supply near harmonic order${orders.length > 1 ? 's' : ''} ${orderFigures(orders).join(' and ')}${near.length ? ` (within 10 % of the ${near.map(ordinal).join(' and the ')})` : ''}; the harmonic check of this study ${lowestPeak === null ? 'found no resonance peak in its range' : `scanned its lowest peak at h = ${lowestPeak.toFixed(2)}`} and ${passes ? 'passes the plain bank: no order in the spectra entered lies near a peak. The spectra are typical or entered ones: measure the real spectrum of the board before installing, and again when harmonic-producing loads are added' : 'fails the plain bank (see the harmonic check)'}`,
   partialBalance: (negative: number, zero: number, reactors: readonly PhaseLabel[]) =>
     `the capacitor-only compensator meets the power-factor target but balances only partly (|I2|/|I1| = ${negative.toFixed(1)} %, |I0|/|I1| = ${zero.toFixed(1)} %)${reactors.length ? `; full balance needs reactors on ${reactors.join(', ')}` : ''}`,
   /** @param suggestedA the primary trivar would choose for that current (1.25 × it, next standard rating) */

@@ -106,8 +106,9 @@ function resonanceCapacitance(board: Board, corrected: Board, branches: readonly
 function pathFigures(
   board: Board,
   path: CapacitorPathReactance | null,
-): Pick<ResonanceCapacitance, 'supplyReactanceOhm' | 'neutralReactanceOhm' | 'reactanceShortCircuitKVA' | 'unequalCurrents' | 'orders' | 'lowestBelowSingleNode' | 'singleNodeOrder' | 'neutralTieReactanceOhm'> {
-  if (path === null) return { supplyReactanceOhm: null, neutralReactanceOhm: null, reactanceShortCircuitKVA: null, unequalCurrents: false, orders: [], lowestBelowSingleNode: false, singleNodeOrder: null, neutralTieReactanceOhm: null };
+): Pick<ResonanceCapacitance, 'supplyReactanceOhm' | 'neutralReactanceOhm' | 'reactanceShortCircuitKVA' | 'unequalCurrents' | 'orders' | 'lowestBelowSingleNode' | 'singleNodeOrder' | 'neutralTieReactanceOhm' | 'capacitorKvarAtNominalV' | 'reactorKvarAtNominalV'> {
+  if (path === null)
+    return { supplyReactanceOhm: null, neutralReactanceOhm: null, reactanceShortCircuitKVA: null, unequalCurrents: false, orders: [], lowestBelowSingleNode: false, singleNodeOrder: null, neutralTieReactanceOhm: null, capacitorKvarAtNominalV: 0, reactorKvarAtNominalV: 0 };
   const lowest = path.resonanceOrders[0];
   const x = (board.system === 'single-phase' ? shortCircuitPathImpedance(board) : supplyPathImpedance(board)).im;
   // n·V²/X_path is S_sc,X for a single loop or a balanced bank; anything else is weighed by the current each conductor carries.
@@ -122,6 +123,8 @@ function pathFigures(
     // order; within half a percent (a compensator's slightly unequal branches) it still names it.
     lowestBelowSingleNode: lowest !== undefined && path.singleNodeOrder !== null && lowest < path.singleNodeOrder * (1 - SAME_ORDER),
     singleNodeOrder: path.singleNodeOrder,
+    capacitorKvarAtNominalV: path.capacitorVA / 1000,
+    reactorKvarAtNominalV: path.reactorVA / 1000,
     neutralTieReactanceOhm: path.tiedToNeutral ? (neutralPathImpedance(board)?.im ?? null) : null,
   };
 }

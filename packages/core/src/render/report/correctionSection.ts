@@ -250,7 +250,9 @@ function capacitanceWords(c: CorrectionReport['verification']['resonanceCapacita
     ...(c.addedKvar > 0 ? [`${fixed(c.addedKvar, 1)} kvar added, every step in (${statesBelow ? 'each step state below' : 'with fewer steps in, the orders lie higher'})`] : []),
     ...(c.onBoardKvar > 0 ? [`${fixed(c.onBoardKvar, 1)} kvar of leading loads already on the board (${c.loadsOnBoard.join(', ')})`] : []),
   ];
-  return `${parts.join(' + ')}${c.reactorKvar > 0 ? `; reactors added ${fixed(c.reactorKvar, 1)} kvar` : ''}`;
+  // The orders are worked from the capacitance: Qc at nominal voltage, beside what it delivers at the solved voltage.
+  const reactors = c.reactorKvar > 0 ? `; reactors added ${fixed(c.reactorKvarAtNominalV, 2)} kvar at nominal voltage (${fixed(c.reactorKvar, 1)} kvar at the solved voltage)` : '';
+  return `Qc = ${fixed(c.capacitorKvarAtNominalV, 2)} kvar at nominal voltage, what the order is worked from; at the solved voltage ${parts.join(' + ')}${reactors}`;
 }
 
 /** The resonance of the recommended capacitors with the supply, when the study could estimate it. */
