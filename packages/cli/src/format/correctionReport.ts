@@ -351,6 +351,14 @@ function otherOrdersWords(v: CorrectionVerification): string {
  */
 const handFigure = (x: number): string => (Math.abs(x) >= 1000 ? x.toFixed(0) : x.toPrecision(4));
 
+/** Which order (mode) lies near which watched order: "order 7 (6.54)", so a line that names 4.48 first says which mode is near. */
+function nearModesWords(v: CorrectionVerification): string {
+  const band = CORRECTION_DEFAULTS.resonanceNearFraction;
+  return v.resonanceNearOrders
+    .map((w) => `order ${w} (${v.resonanceOrders.filter((h) => Math.abs(h - w) <= band * w).map((h) => fixed(h, 2)).join(', ')})`)
+    .join(', ');
+}
+
 /** The supply resonance line: its estimate and what it is worked from, or why there is none. */
 function resonanceWords(v: CorrectionVerification, detuned: boolean): string {
   const head = 'parallel resonance with the supply';
@@ -377,7 +385,7 @@ function resonanceWords(v: CorrectionVerification, detuned: boolean): string {
   // √(S_sc,X/Q_C) is checked with by hand; the kvar at the solved voltage is what the voltage-rise line uses.
   const reactors = c.reactorKvar > 0 ? `; Q_L = ${handFigure(c.reactorKvarAtNominalV)} kvar of reactors added at nominal voltage (${fixed(c.reactorKvar, 1)} kvar at the solved voltage)` : '';
   const path = `; X_path = ${pathReactanceWords(v)} (S_sc,X = ${handFigure(c.reactanceShortCircuitKVA ?? 0)} kVA; its resistance damps the peak but hardly moves it)`;
-  const near = v.resonanceNearOrders.length ? `; within 10 % of order ${v.resonanceNearOrders.join(', ')}` : '';
+  const near = v.resonanceNearOrders.length ? `; within 10 % of ${nearModesWords(v)}` : '';
   // Estimated with all the added capacitance in: fewer steps in raise every order (less capacitance), each state below.
   const states = c.addedKvar > 0 ? (v.resonanceStepStates ? '; with every step in (each step state below)' : '; with every step in (with fewer steps in, the orders lie higher)') : '';
   const qC = `Q_C = ${handFigure(c.capacitorKvarAtNominalV)} kvar at nominal voltage, what h is worked from (${parts.join(' + ')} at the solved voltage)`;

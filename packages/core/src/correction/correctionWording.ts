@@ -36,10 +36,9 @@ export function orderFigures(orders: readonly number[]): string[] {
   return orders.map((h) => h.toFixed(3));
 }
 
-/** Each resonance order that lies near a watched order, with the order it is near: "6.54 (the 7th)"; `near` gives an order's watched orders. */
+/** Each resonance order that lies near a watched order, to two decimals as the resonance figures are given, with the order it is near: "6.54 (the 7th)"; `near` gives an order's watched orders. */
 export function ordersNearWords(orders: readonly number[], near: (h: number) => readonly number[]): string[] {
-  const printed = orderFigures(orders);
-  return orders.flatMap((h, k) => (near(h).length ? [`${printed[k]} (the ${near(h).map(ordinal).join(' and the ')})`] : []));
+  return orders.flatMap((h) => (near(h).length ? [`${h.toFixed(2)} (the ${near(h).map(ordinal).join(' and the ')})`] : []));
 }
 
 /**

@@ -7,7 +7,8 @@ import type { ControllerSettings, CorrectionReport } from '../../correction/corr
 import type { CorrectionComparison } from '../../correction/compareCorrections.js';
 import type { HarmonicCorrectionReport } from '../../harmonics/correctWithHarmonics.js';
 import { correctionComparisonBlocks } from './correctionComparisonBlocks.js';
-import { arrangementDescriptions, arrangementNames, meteringPointWords, stepStatesClearWords, stepStateTable } from '../../correction/correctionWording.js';
+import { arrangementDescriptions, arrangementNames, meteringPointWords, ordersNearWords, stepStatesClearWords, stepStateTable } from '../../correction/correctionWording.js';
+import { resonanceNearOrders } from '../../correction/stepStateResonance.js';
 import { fixed } from '../svgText.js';
 import { exportingLinesNote, isExportCurrentA, linePfText } from '../powerFactorText.js';
 import { renderPhasorDiagram } from '../renderPhasorDiagram.js';
@@ -280,6 +281,8 @@ export function resonanceSection(report: CorrectionReport): ReportSection | null
   // Where the harmonic check scanned the bank in the same study, its verdict decides, not the estimate.
   const check = (report as { harmonics?: { summary: string; check: unknown } }).harmonics;
   const scanned = check && check.check !== null ? check : null;
+  // Name the mode that is near, not only the order: the lowest mode may be clear while another is not.
+  const modesNear = ordersNearWords(report.verification.resonanceOrders, (o) => resonanceNearOrders(o)).join('; ');
   return {
     id: 'harmonics',
     title: 'Harmonics and resonance',
@@ -298,8 +301,8 @@ export function resonanceSection(report: CorrectionReport): ReportSection | null
       },
       near.length
         ? scanned
-          ? { kind: 'list', tone: 'warning', items: [`The estimate lies within ${fixed(100 * band, 0)} % of harmonic order ${near.join(', ')}; the harmonic check of this report scanned the bank and decides: ${scanned.summary}.`] }
-          : { kind: 'list', tone: 'warning', items: [`The resonance lies within ${fixed(100 * band, 0)} % of harmonic order ${near.join(', ')}, which common non-linear loads produce: a harmonic study and detuning reactors are strongly advised.`] }
+          ? { kind: 'list', tone: 'warning', items: [`The estimate lies within ${fixed(100 * band, 0)} % of a harmonic order: ${modesNear}; the harmonic check of this report scanned the bank and decides: ${scanned.summary}.`] }
+          : { kind: 'list', tone: 'warning', items: [`Within ${fixed(100 * band, 0)} % of a harmonic order, which common non-linear loads produce: ${modesNear}. A harmonic study and detuning reactors are strongly advised.`] }
         : { kind: 'paragraph', text: `With every step in, the resonance is not within ${fixed(100 * band, 0)} % of orders ${watched.join(', ')}. This is an estimate from the supply path's reactance only (its resistance damps the peak but hardly moves it; the classic √(Ssc/Qc) with Ssc from |Z| assumes X ≫ R); it does not replace a harmonic study of the board.` },
       ...stepStateBlocks(report, scanned),
     ],
