@@ -20,13 +20,16 @@ const STATUS_WORDS: Record<string, string> = {
 function headline(r: CorrectionReport): string {
   const words = r.status === 'no-suitable-units' && (r.selection?.units ?? 0) > 0 ? 'NO SUITABLE UNITS for part of this arrangement' : (STATUS_WORDS[r.status] ?? r.status);
   if (!r.status.startsWith('meets')) return words;
+  // A CT given that is too small: met only with the CT the controller needs (ControllerSettings.ctNeeded).
+  const ct = r.selection?.controller;
+  const withCt = ct?.ctNeeded ? `${words} WITH A CT OF AT LEAST ${ampsRating(ct.ctNeeded.primaryA)}/${ampsRating(ct.ctSecondaryA)} A` : words;
   const buts = [
     ...(r.verification.overloadsCaused.length ? ['OVERLOADS WHAT FEEDS IT'] : []),
     // The estimate near a harmonic order in a state the controller can reach (every step in included).
     ...(r.verification.resonanceNearHarmonic ? ['ITS SUPPLY RESONANCE LIES NEAR A HARMONIC ORDER'] : []),
     ...(r.warnings.some((w) => w.code === 'harmonic-check-failed') ? ['FAILS THE HARMONIC CHECK'] : []),
   ];
-  return buts.length ? `${words}, BUT ${buts.join(' AND ')}` : words;
+  return buts.length ? `${withCt}, BUT ${buts.join(' AND ')}` : withCt;
 }
 
 const arrow = (x: BeforeAfter, digits: number, unit = '') => `${fixed(x.before, digits)}${unit} → ${fixed(x.after, digits)}${unit}`;
@@ -198,8 +201,10 @@ function controllerLines(c: ControllerSettings): string[] {
     `outputs: ${c.outputsUsed} of ${c.outputs} used · ${c.measurement === 'one-line' ? 'balanced steps: an ordinary controller reading one CT' : 'steps serve single lines: the controller must measure every line (one CT per line)'}`,
     `CT ${ampsRating(c.ctPrimaryA)}/${ampsRating(c.ctSecondaryA)} A${c.ctChosen ? '' : ' (given)'} at ${c.ctBasis.placeWords}; ${
       c.ctChosen ? `chosen: the next standard rating at or above 1.25 × ${c.ctBasis.currentWords}; give controller.ctPrimaryA if yours differs` : `checked against ${c.ctBasis.currentWords}`
+    }${c.ctNeeded ? `  ← TOO SMALL: that current is ${fixed(c.ctBasis.currentA / c.ctPrimaryA, 1)} × its primary, so it saturates (see the warnings); the CT it needs: ${ampsRating(c.ctNeeded.primaryA)}/${ampsRating(c.ctSecondaryA)} A` : ''}`,
+    `C/k of the smallest step (${fixed(c.smallestStepKvar, 2)} kvar at nominal voltage) = ${fixed(c.responseThresholdA, 3)} A${c.thresholdBasis === 'line-pair' ? LINE_PAIR_CK : ''}; set ${fixed(c.responseSettingA, 3)} A (${c.settingFraction} × C/k)${
+      c.ctNeeded ? ` on the ${ampsRating(c.ctPrimaryA)}/${ampsRating(c.ctSecondaryA)} A given; on ${ampsRating(c.ctNeeded.primaryA)}/${ampsRating(c.ctSecondaryA)} A: C/k ${fixed(c.ctNeeded.responseThresholdA, 3)} A, set ${fixed(c.ctNeeded.responseSettingA, 3)} A` : ''
     }`,
-    `C/k of the smallest step (${fixed(c.smallestStepKvar, 2)} kvar at nominal voltage) = ${fixed(c.responseThresholdA, 3)} A${c.thresholdBasis === 'line-pair' ? LINE_PAIR_CK : ''}; set ${fixed(c.responseSettingA, 3)} A (${c.settingFraction} × C/k)`,
     `target band ${band} · switching delay ${c.switchingDelayS} s · a step waits ${c.reconnectionDelayS} s before it is switched on again (discharge time ${c.dischargeTimeS} s, ${c.dischargeRule})`,
   ];
 }

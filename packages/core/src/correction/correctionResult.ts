@@ -389,6 +389,13 @@ export interface ControllerSettings {
   readonly ctRatio: number;
   /** True when trivar chose the CT primary (none given). */
   readonly ctChosen: boolean;
+  /**
+   * Where a CT given is below the current it must carry (`ctBasis.currentA`): the primary trivar would choose there
+   * (the next standard rating at or above 1.25 × that current) and C/k and its setting on it (C/k ∝ 1/k_CT, the
+   * same secondary). The settings above are for the CT given, which saturates; null where the CT is large enough
+   * or was chosen.
+   */
+  readonly ctNeeded: { readonly primaryA: number; readonly responseThresholdA: number; readonly responseSettingA: number } | null;
   /** Where the CT goes and the line current it is chosen on (or, given, checked against). */
   readonly ctBasis: CtBasis;
   readonly smallestStepKvar: number;

@@ -6,7 +6,7 @@ import type { PhaseLabel } from '../board/conventions/phaseNames.js';
 import type { PhaseId } from '../board/boardModel.js';
 import type { PowerFactorSense } from '../analysis/boardResult.js';
 import type { Arrangement, TargetDefinition } from './correctionSpec.js';
-import type { BuildVerdict, CtBasis, LeastSwitchedStep, SmallBranch, StepStateCurrent, StepStateOrders, StepStateResonance, SparedBranch, TargetName } from './correctionResult.js';
+import type { BuildVerdict, ControllerSettings, CtBasis, LeastSwitchedStep, SmallBranch, StepStateCurrent, StepStateOrders, StepStateResonance, SparedBranch, TargetName } from './correctionResult.js';
 import { argumentIssueError, checkListArgument, checkNumberArgument, checkObjectArgument, checkTextArgument, checkWordArgument } from '../_internal/argumentChecks.js';
 import { starWordOf, type StarWord } from '../board/conventions/regionWords.js';
 import { REGIONS, type Region } from '../board/conventions/region.js';
@@ -248,6 +248,13 @@ export function resonanceSummaryClause(
   const named = orders.map(ordinal);
   const list = named.length === 1 ? `the ${named[0]} harmonic` : `the ${named.slice(0, -1).join(', ')} and ${named.at(-1)} harmonics`;
   return `; ${joined} its supply resonance lies within 10 % of ${list} ${where.join(' and ')} (see the warnings)`;
+}
+
+/** The verdict's qualification where the CT given is below the current it must carry (ControllerSettings.ctNeeded); empty where it is not. */
+export function ctNeededClause(c: Pick<ControllerSettings, 'ctNeeded' | 'ctPrimaryA' | 'ctSecondaryA' | 'ctBasis'>): string {
+  if (!c.ctNeeded) return '';
+  const amps = (a: number) => String(Number(a.toFixed(2)));
+  return `; met with a controller CT of at least ${amps(c.ctNeeded.primaryA)}/${amps(c.ctSecondaryA)} A: the ${amps(c.ctPrimaryA)}/${amps(c.ctSecondaryA)} A given is below the ${f1(c.ctBasis.currentA)} A it must carry and saturates (see the warnings)`;
 }
 
 /** At most this many states are named in a warning; the rest are counted (the step-state table lists them). */
