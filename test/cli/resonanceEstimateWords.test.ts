@@ -20,7 +20,7 @@ describe('resonance and rise estimates in words', () => {
     // Built: A-N and B-N capacitors of unequal size behind X_line 0.006 Ω and X_N 0.018 Ω (the library test
     // resonanceNetworkOrders checks such orders against the determinant by hand).
     expect(text).toContain("parallel resonance with the supply at about h = 10.55 (× 60 Hz = 633 Hz), the lowest resonance of the supply path's reactances with the capacitances (√(S_sc,X/Q_C) = 12.91 at nominal voltage");
-    expect(text).toContain('within 10 % of order 11;');
+    expect(text).toContain('within 10 % of order 11 (10.55);');
     expect(text).toContain('resonate near harmonic order 10.6 (within 10 % of the 11th)');
     // The rise: line A's, 0.74 % beside 0.73 % solved (the average over the conductors said 0.59 %).
     expect(text).toMatch(/steady voltage rise: ≈ 0\.74 % on line A, the line these unequal capacitors raise most .* gives 0\.59 %\); solved 0\.73 %/);

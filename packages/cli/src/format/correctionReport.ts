@@ -20,13 +20,16 @@ const STATUS_WORDS: Record<string, string> = {
 function headline(r: CorrectionReport): string {
   const words = r.status === 'no-suitable-units' && (r.selection?.units ?? 0) > 0 ? 'NO SUITABLE UNITS for part of this arrangement' : (STATUS_WORDS[r.status] ?? r.status);
   if (!r.status.startsWith('meets')) return words;
+  // A CT given that is too small: met only with the CT the controller needs (ControllerSettings.ctNeeded).
+  const ct = r.selection?.controller;
+  const withCt = ct?.ctNeeded ? `${words} WITH A CT OF AT LEAST ${ampsRating(ct.ctNeeded.primaryA)}/${ampsRating(ct.ctSecondaryA)} A` : words;
   const buts = [
     ...(r.verification.overloadsCaused.length ? ['OVERLOADS WHAT FEEDS IT'] : []),
     // The estimate near a harmonic order in a state the controller can reach (every step in included).
     ...(r.verification.resonanceNearHarmonic ? ['ITS SUPPLY RESONANCE LIES NEAR A HARMONIC ORDER'] : []),
     ...(r.warnings.some((w) => w.code === 'harmonic-check-failed') ? ['FAILS THE HARMONIC CHECK'] : []),
   ];
-  return buts.length ? `${words}, BUT ${buts.join(' AND ')}` : words;
+  return buts.length ? `${withCt}, BUT ${buts.join(' AND ')}` : withCt;
 }
 
 const arrow = (x: BeforeAfter, digits: number, unit = '') => `${fixed(x.before, digits)}${unit} → ${fixed(x.after, digits)}${unit}`;
@@ -199,8 +202,10 @@ function controllerLines(c: ControllerSettings, everyLine: string): string[] {
     `outputs: ${c.outputsUsed} of ${c.outputs} used · ${c.measurement === 'one-line' ? 'balanced steps: an ordinary controller reading one CT' : `steps serve single lines: the controller must measure every line (${everyLine})`}`,
     `CT ${ampsRating(c.ctPrimaryA)}/${ampsRating(c.ctSecondaryA)} A${c.ctChosen ? '' : ' (given)'} at ${c.ctBasis.placeWords}; ${
       c.ctChosen ? `chosen: the next standard rating at or above 1.25 × ${c.ctBasis.currentWords}; give controller.ctPrimaryA if yours differs` : `checked against ${c.ctBasis.currentWords}`
+    }${c.ctNeeded ? `  ← TOO SMALL: that current is ${fixed(c.ctBasis.currentA / c.ctPrimaryA, 1)} × its primary, so it saturates (see the warnings); the CT it needs: ${ampsRating(c.ctNeeded.primaryA)}/${ampsRating(c.ctSecondaryA)} A` : ''}`,
+    `C/k of the smallest step (${fixed(c.smallestStepKvar, 2)} kvar at nominal voltage) = ${fixed(c.responseThresholdA, 3)} A${c.thresholdBasis === 'line-pair' ? LINE_PAIR_CK : ''}; set ${fixed(c.responseSettingA, 3)} A (${c.settingFraction} × C/k)${
+      c.ctNeeded ? ` on the ${ampsRating(c.ctPrimaryA)}/${ampsRating(c.ctSecondaryA)} A given; on ${ampsRating(c.ctNeeded.primaryA)}/${ampsRating(c.ctSecondaryA)} A: C/k ${fixed(c.ctNeeded.responseThresholdA, 3)} A, set ${fixed(c.ctNeeded.responseSettingA, 3)} A` : ''
     }`,
-    `C/k of the smallest step (${fixed(c.smallestStepKvar, 2)} kvar at nominal voltage) = ${fixed(c.responseThresholdA, 3)} A${c.thresholdBasis === 'line-pair' ? LINE_PAIR_CK : ''}; set ${fixed(c.responseSettingA, 3)} A (${c.settingFraction} × C/k)`,
     `target band ${band} · switching delay ${c.switchingDelayS} s · a step waits ${c.reconnectionDelayS} s before it is switched on again (discharge time ${c.dischargeTimeS} s, ${c.dischargeRule})`,
   ];
 }
@@ -362,6 +367,20 @@ function otherOrdersWords(v: CorrectionVerification): string {
   return others.length ? `; the network also resonates at h = ${others.map((h) => fixed(h, 2)).join(', ')}` : '';
 }
 
+/**
+ * Four significant figures (whole units from 1000): enough that √(S_sc,X/Q_C) worked from the printed
+ * figures gives the printed order to its two decimals (each figure within 0.01 % moves h by under 0.001).
+ */
+const handFigure = (x: number): string => (Math.abs(x) >= 1000 ? x.toFixed(0) : x.toPrecision(4));
+
+/** Which order (mode) lies near which watched order: "order 7 (6.54)", so a line that names 4.48 first says which mode is near. */
+function nearModesWords(v: CorrectionVerification): string {
+  const band = CORRECTION_DEFAULTS.resonanceNearFraction;
+  return v.resonanceNearOrders
+    .map((w) => `order ${w} (${v.resonanceOrders.filter((h) => Math.abs(h - w) <= band * w).map((h) => fixed(h, 2)).join(', ')})`)
+    .join(', ');
+}
+
 /** The supply resonance line: its estimate and what it is worked from, or why there is none. */
 function resonanceWords(v: CorrectionVerification, detuned: boolean): string {
   const head = 'parallel resonance with the supply';
@@ -384,12 +403,15 @@ function resonanceWords(v: CorrectionVerification, detuned: boolean): string {
     ...(c.addedKvar > 0 ? [`${fixed(c.addedKvar, 1)} kvar added`] : []),
     ...(c.onBoardKvar > 0 ? [`${fixed(c.onBoardKvar, 1)} kvar of leading loads already on the board (${c.loadsOnBoard.join(', ')}), taken as capacitance`] : []),
   ];
-  const reactors = c.reactorKvar > 0 ? `; Q_L = ${fixed(c.reactorKvar, 1)} kvar of reactors added` : '';
-  const path = `; X_path = ${pathReactanceWords(v)} (S_sc,X = ${fixed(c.reactanceShortCircuitKVA ?? 0, 0)} kVA; its resistance damps the peak but hardly moves it)`;
-  const near = v.resonanceNearOrders.length ? `; within 10 % of order ${v.resonanceNearOrders.join(', ')}` : '';
+  // The orders are worked from the capacitance, so Q_C (and Q_L) are given at nominal voltage, the figures
+  // √(S_sc,X/Q_C) is checked with by hand; the kvar at the solved voltage is what the voltage-rise line uses.
+  const reactors = c.reactorKvar > 0 ? `; Q_L = ${handFigure(c.reactorKvarAtNominalV)} kvar of reactors added at nominal voltage (${fixed(c.reactorKvar, 1)} kvar at the solved voltage)` : '';
+  const path = `; X_path = ${pathReactanceWords(v)} (S_sc,X = ${handFigure(c.reactanceShortCircuitKVA ?? 0)} kVA; its resistance damps the peak but hardly moves it)`;
+  const near = v.resonanceNearOrders.length ? `; within 10 % of ${nearModesWords(v)}` : '';
   // Estimated with all the added capacitance in: fewer steps in raise every order (less capacitance), each state below.
   const states = c.addedKvar > 0 ? (v.resonanceStepStates ? '; with every step in (each step state below)' : '; with every step in (with fewer steps in, the orders lie higher)') : '';
-  return `${head} at about ${figure}${near}; Q_C = ${parts.join(' + ')}${reactors}${path}${states}`;
+  const qC = `Q_C = ${handFigure(c.capacitorKvarAtNominalV)} kvar at nominal voltage, what h is worked from (${parts.join(' + ')} at the solved voltage)`;
+  return `${head} at about ${figure}${near}; ${qC}${reactors}${path}${states}`;
 }
 
 /** `detuned`: the bank's steps sit behind reactors, so √(S_sc/Qc) does not apply (the harmonic check covers it). */

@@ -172,6 +172,12 @@ export function controllerSettings(input: ControllerInputs): ControllerSettings 
   const smallest = switched.reduce((a, b) => (b.responseThresholdA < a.responseThresholdA ? b : a));
   const threshold = smallest.responseThresholdA;
   const discharge = CORRECTION_DEFAULTS.dischargeTimeS[input.practice];
+  // A CT given below the current it must carry saturates: the CT it needs, and C/k on it (C/k ∝ primary⁻¹ at the same secondary).
+  const neededA = !chosen && primaryA < input.ctBasis.currentA ? standardCtPrimaryA(CORRECTION_DEFAULTS.ctHeadroom * input.ctBasis.currentA) : null;
+  const ctNeeded =
+    neededA === null
+      ? null
+      : { primaryA: neededA, responseThresholdA: (threshold * primaryA) / neededA, responseSettingA: (CORRECTION_DEFAULTS.ckSettingFraction * threshold * primaryA) / neededA };
   return {
     outputs: input.spec.outputs ?? CORRECTION_DEFAULTS.controllerOutputs,
     outputsUsed: switched.length,
@@ -180,6 +186,7 @@ export function controllerSettings(input: ControllerInputs): ControllerSettings 
     ctSecondaryA: secondaryA,
     ctRatio: primaryA / secondaryA,
     ctChosen: chosen,
+    ctNeeded,
     ctBasis: input.ctBasis,
     smallestStepKvar: smallest.kvarAtNominalV,
     thresholdBasis: smallest.thresholdBasis,

@@ -27,7 +27,7 @@ import { nothingToBuildOf, withheldBuildOf } from './nothingToBuild.js';
 import { catalogueUnitOf, TYPICAL_CATALOGUES } from './unitCatalogues.js';
 import type { TargetDefinition } from './correctionSpec.js';
 import { withCtReading, type CtEndReading, type CtReading } from './controllerSettings.js';
-import { arrangementNames, resonanceSummaryClause, correctionCautions, ctRatingWords, nothingToBuildCautions, exemptLeadingLines, exemptLeadingWords, infeasibleReason, lostNeutralCaution, lostNeutralUnequal, MODEL_CAUTION, meteringWarning, reportSummary, warningText } from './correctionWording.js';
+import { arrangementNames, ctNeededClause, resonanceSummaryClause, correctionCautions, ctRatingWords, nothingToBuildCautions, exemptLeadingLines, exemptLeadingWords, infeasibleReason, lostNeutralCaution, lostNeutralUnequal, MODEL_CAUTION, meteringWarning, reportSummary, warningText } from './correctionWording.js';
 import { definedOnly } from './_internal/optionSchemas.js';
 import { assertViableBoard } from '../analysis/viableOperatingPoint.js';
 import { CORRECTION_DEFAULTS, toleranceFractions } from './correctionDefaults.js';
@@ -543,6 +543,8 @@ export function correctBoardBuilt(board: Board, spec: unknown, construction: { r
       (verification.overloadsCaused.length ? `; but with it in, ${verification.overloadsCaused.map((o) => o.message).join('; ')}` : '') +
       // Nor of a supply resonance near a harmonic order in a state the controller can reach.
       (status.startsWith('meets') ? resonanceSummaryClause(verification, verification.overloadsCaused.length ? 'and' : 'but') : '') +
+      // Nor with the CT given, where it is below the current it must carry: met with the CT it needs.
+      (status.startsWith('meets') && built?.controller?.ctNeeded ? ctNeededClause(built.controller) : '') +
       // Nor does it say what the rise does: above the flag level the verdict carries the flag beside it.
       riseFlagRider(verification.voltageRise, 'see the warnings'),
     reasons,

@@ -146,6 +146,14 @@ export const CORRECTION_DEFAULTS = {
    * single-node estimate too coarse to name an order. Even orders are left out (half-wave loads are rare).
    */
   resonanceWatchedOrders: [3, 5, 7, 9, 11, 13, 15, 17, 19],
+  /**
+   * The watched orders a resonance near them headlines the verdict ("meets the target, but …"): those a built-in
+   * typical spectrum (harmonics/typicalSpectra.ts) gives at least 5 % of the fundamental — 5th, 7th, 11th, 13th
+   * from drives and rectifiers, and the triplen 3rd, 9th and 15th from single-phase rectifiers, which count only
+   * where they can reach the capacitance (resonanceExcitation.ts). The 17th and 19th (3–4 % from drives) go to
+   * the warnings and the step-state table. The 5 % line is common practice, no source.
+   */
+  resonanceHeadlineOrders: [3, 5, 7, 9, 11, 13, 15],
   /** A resonance within this fraction of a watched order is flagged (common practice, no source; as the harmonic scan's band). */
   resonanceNearFraction: 0.1,
   compensatorWeights: { negativeSequence: 1, zeroSequence: 1, reactive: 1 },

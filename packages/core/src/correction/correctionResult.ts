@@ -389,6 +389,13 @@ export interface ControllerSettings {
   readonly ctRatio: number;
   /** True when trivar chose the CT primary (none given). */
   readonly ctChosen: boolean;
+  /**
+   * Where a CT given is below the current it must carry (`ctBasis.currentA`): the primary trivar would choose there
+   * (the next standard rating at or above 1.25 × that current) and C/k and its setting on it (C/k ∝ 1/k_CT, the
+   * same secondary). The settings above are for the CT given, which saturates; null where the CT is large enough
+   * or was chosen.
+   */
+  readonly ctNeeded: { readonly primaryA: number; readonly responseThresholdA: number; readonly responseSettingA: number } | null;
   /** Where the CT goes and the line current it is chosen on (or, given, checked against). */
   readonly ctBasis: CtBasis;
   readonly smallestStepKvar: number;
@@ -579,6 +586,13 @@ export interface ResonanceCapacitance {
   readonly lowestBelowSingleNode: boolean;
   /** The single-node figure √((S_sc,X + Q_L)/Q_C) at nominal voltage (capacitorPathReactance.ts); null without capacitors. */
   readonly singleNodeOrder: number | null;
+  /**
+   * Q_C of the capacitance (added and on the board) at nominal voltage, kvar: what every order is worked from (the
+   * capacitance, not the kvar it delivers at the solved voltage, `totalKvar`); 0 where the path has no estimate.
+   */
+  readonly capacitorKvarAtNominalV: number;
+  /** Q_L of the reactors added at nominal voltage, kvar, as `singleNodeOrder` takes it; 0 without reactors or estimate. */
+  readonly reactorKvarAtNominalV: number;
   /** The neutral path's reactance, ohm, where a capacitor is tied to the neutral (its common mode swings against it); else null. */
   readonly neutralTieReactanceOhm: number | null;
 }
@@ -728,9 +742,16 @@ export interface CorrectionVerification {
    */
   readonly resonanceStepStates: StepStateResonance | null;
   /**
-   * True where the resonance estimate lies within the band of a watched order with every step in or in any
-   * state the controller can reach: what the resonance warnings say, the verdict's headline and the
-   * comparison's ranking weigh. False where the harmonic check's scan of every step combination decides.
+   * The watched orders that headline the verdict: within the band of a resonance with every step in or in a
+   * state the controller can reach, with significant typical content (CORRECTION_DEFAULTS.resonanceHeadlineOrders),
+   * and able to reach the capacitance (the triplens only through a neutral branch, a split-phase or single-phase
+   * board, or loads across two lines: resonanceExcitation.ts). Orders near only in the warnings are not here.
+   */
+  readonly resonanceHeadlineOrders: readonly number[];
+  /**
+   * True where `resonanceHeadlineOrders` is not empty: what the verdict's headline and the comparison's ranking
+   * weigh (the warnings name every watched order near). False where the harmonic check's scan of every step
+   * combination decides.
    */
   readonly resonanceNearHarmonic: boolean;
   readonly lightLoad: LightLoadCheck | null;

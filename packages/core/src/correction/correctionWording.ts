@@ -6,7 +6,7 @@ import type { PhaseLabel } from '../board/conventions/phaseNames.js';
 import type { PhaseId } from '../board/boardModel.js';
 import type { PowerFactorSense } from '../analysis/boardResult.js';
 import type { Arrangement, TargetDefinition } from './correctionSpec.js';
-import type { BuildVerdict, CtBasis, LeastSwitchedStep, SmallBranch, StepStateCurrent, StepStateOrders, StepStateResonance, SparedBranch, TargetName } from './correctionResult.js';
+import type { BuildVerdict, ControllerSettings, CtBasis, LeastSwitchedStep, SmallBranch, StepStateCurrent, StepStateOrders, StepStateResonance, SparedBranch, TargetName } from './correctionResult.js';
 import { argumentIssueError, checkListArgument, checkNumberArgument, checkObjectArgument, checkTextArgument, checkWordArgument } from '../_internal/argumentChecks.js';
 import { starWordOf, type StarWord } from '../board/conventions/regionWords.js';
 import { REGIONS, type Region } from '../board/conventions/region.js';
@@ -26,6 +26,20 @@ interface TargetWords {
 const f3 = (x: number) => x.toFixed(3);
 /** 3 → "3rd", 11 → "11th", 21 → "21st". */
 const ordinal = (n: number): string => `${n}${n % 100 >= 11 && n % 100 <= 13 ? 'th' : ['th', 'st', 'nd', 'rd'][n % 10] ?? 'th'}`;
+
+/** Resonance orders printed so that they tell apart: one decimal, or more (up to three) where two would print alike (6.77 and 6.84, not 6.8 and 6.8). */
+export function orderFigures(orders: readonly number[]): string[] {
+  for (let decimals = 1; decimals < 3; decimals++) {
+    const printed = orders.map((h) => h.toFixed(decimals));
+    if (new Set(printed).size === printed.length) return printed;
+  }
+  return orders.map((h) => h.toFixed(3));
+}
+
+/** Each resonance order that lies near a watched order, to two decimals as the resonance figures are given, with the order it is near: "6.54 (the 7th)"; `near` gives an order's watched orders. */
+export function ordersNearWords(orders: readonly number[], near: (h: number) => readonly number[]): string[] {
+  return orders.flatMap((h) => (near(h).length ? [`${h.toFixed(2)} (the ${near(h).map(ordinal).join(' and the ')})`] : []));
+}
 
 /**
  * A figure beside the bound it misses, with enough decimals that the two read
@@ -216,17 +230,31 @@ export function stepStateInWords(st: Pick<StepStateOrders, 'outputsIn'>, fixedPa
  * the controller can reach (CorrectionVerification.resonanceNearHarmonic); empty where it does not.
  */
 export function resonanceSummaryClause(
-  v: { readonly resonanceNearHarmonic: boolean; readonly resonanceNearOrders: readonly number[]; readonly resonanceStepStates: StepStateResonance | null },
+  v: {
+    readonly resonanceNearHarmonic: boolean;
+    readonly resonanceNearOrders: readonly number[];
+    readonly resonanceHeadlineOrders: readonly number[];
+    readonly resonanceStepStates: StepStateResonance | null;
+  },
   /** 'and' where the summary already has its "but" (an overload). */
   joined: 'but' | 'and' = 'but',
 ): string {
   if (!v.resonanceNearHarmonic) return '';
-  const partial = v.resonanceStepStates?.states.slice(1).filter((st) => st.nearOrders.length > 0) ?? [];
-  const orders = [...new Set([...v.resonanceNearOrders, ...partial.flatMap((st) => st.nearOrders)])].sort((a, b) => a - b);
-  const where = [...(v.resonanceNearOrders.length ? ['with every step in'] : []), ...(partial.length ? [`in ${partial.length} state${partial.length === 1 ? '' : 's'} with fewer steps in`] : [])];
+  // Only the orders that headline (significant, able to reach the bank); the warnings name the others.
+  const orders = v.resonanceHeadlineOrders;
+  const headlines = (near: readonly number[]) => near.some((h) => orders.includes(h));
+  const partial = v.resonanceStepStates?.states.slice(1).filter((st) => headlines(st.nearOrders)) ?? [];
+  const where = [...(headlines(v.resonanceNearOrders) ? ['with every step in'] : []), ...(partial.length ? [`in ${partial.length} state${partial.length === 1 ? '' : 's'} with fewer steps in`] : [])];
   const named = orders.map(ordinal);
   const list = named.length === 1 ? `the ${named[0]} harmonic` : `the ${named.slice(0, -1).join(', ')} and ${named.at(-1)} harmonics`;
   return `; ${joined} its supply resonance lies within 10 % of ${list} ${where.join(' and ')} (see the warnings)`;
+}
+
+/** The verdict's qualification where the CT given is below the current it must carry (ControllerSettings.ctNeeded); empty where it is not. */
+export function ctNeededClause(c: Pick<ControllerSettings, 'ctNeeded' | 'ctPrimaryA' | 'ctSecondaryA' | 'ctBasis'>): string {
+  if (!c.ctNeeded) return '';
+  const amps = (a: number) => String(Number(a.toFixed(2)));
+  return `; met with a controller CT of at least ${amps(c.ctNeeded.primaryA)}/${amps(c.ctSecondaryA)} A: the ${amps(c.ctPrimaryA)}/${amps(c.ctSecondaryA)} A given is below the ${f1(c.ctBasis.currentA)} A it must carry and saturates (see the warnings)`;
 }
 
 /** At most this many states are named in a warning; the rest are counted (the step-state table lists them). */
@@ -254,7 +282,7 @@ export const warningText = {
     `${what} raises the board voltage by about ${distinctDigits(percent, level, 2)[0]} %, above the ${trimmed(level)} % flag level${reading ? ` (a level for a second look, not a limit the verdict is judged on): ${reading}` : ''}`,
   /** @param capacitance what resonates: the bank, the leading loads already on the board, or both */
   lowResonance: (orders: readonly number[], capacitance: 'bank' | 'board' | 'both' = 'bank', near: readonly number[] = [], states: OtherStepStates = 'unknown') =>
-    `${capacitance === 'bank' ? 'the bank' : capacitance === 'board' ? "the board's own leading loads (capacitance already in service)" : "the bank with the board's own leading loads"} and the supply inductance resonate near harmonic order${orders.length > 1 ? 's' : ''} ${orders.map((h) => h.toFixed(1)).join(' and ')}${near.length ? ` (within 10 % of the ${near.map(ordinal).join(' and the ')})` : ''}, estimated from the supply path's reactances and the capacitances: with harmonic-producing loads on the board this needs a harmonic study and probably a detuned bank${
+    `${capacitance === 'bank' ? 'the bank' : capacitance === 'board' ? "the board's own leading loads (capacitance already in service)" : "the bank with the board's own leading loads"} and the supply inductance resonate near harmonic order${orders.length > 1 ? 's' : ''} ${orderFigures(orders).join(' and ')}${near.length ? ` (within 10 % of the ${near.map(ordinal).join(' and the ')})` : ''}, estimated from the supply path's reactances and the capacitances: with harmonic-producing loads on the board this needs a harmonic study and probably a detuned bank${
       capacitance === 'board' ? '' : otherStatesWords(states)
     }`,
   /**
@@ -278,7 +306,7 @@ export const warningText = {
         : st.alike.length <= 3
           ? ` (or ${st.alike.map((o) => o.join('+')).join(', ')}: the same capacitance)`
           : ` (or any of ${st.alike.length} other combinations with the same capacitance)`;
-      return `${stepStateInWords(st, fixedPart)}${alike}, ${st.capacitorKvarAtNominalV.toFixed(1)} kvar, near ${st.resonancesNear.map((h) => h.toFixed(1)).join(' and ')} (the ${st.nearOrders.map(ordinal).join(' and the ')})`;
+      return `${stepStateInWords(st, fixedPart)}${alike}, ${st.capacitorKvarAtNominalV.toFixed(1)} kvar, near ${orderFigures(st.resonancesNear).join(' and ')} (the ${st.nearOrders.map(ordinal).join(' and the ')})`;
     });
     const more = states.length > NAMED_STATES ? `; and ${states.length - NAMED_STATES} more state${states.length - NAMED_STATES === 1 ? '' : 's'} (see the step-state table)` : '';
     if (scanned)
@@ -287,7 +315,7 @@ export const warningText = {
   },
   /** The same resonance where the harmonic check scanned the plain bank in the same study: the estimate defers to the scan. */
   lowResonanceScanned: (orders: readonly number[], near: readonly number[], lowestPeak: number | null, passes: boolean) =>
-    `the estimate from the supply path's reactances puts the resonance of the capacitance with the supply near harmonic order${orders.length > 1 ? 's' : ''} ${orders.map((h) => h.toFixed(1)).join(' and ')}${near.length ? ` (within 10 % of the ${near.map(ordinal).join(' and the ')})` : ''}; the harmonic check of this study ${lowestPeak === null ? 'found no resonance peak in its range' : `scanned its lowest peak at h = ${lowestPeak.toFixed(2)}`} and ${passes ? 'passes the plain bank: no order in the spectra entered lies near a peak. The spectra are typical or entered ones: measure the real spectrum of the board before installing, and again when harmonic-producing loads are added' : 'fails the plain bank (see the harmonic check)'}`,
+    `the estimate from the supply path's reactances puts the resonance of the capacitance with the supply near harmonic order${orders.length > 1 ? 's' : ''} ${orderFigures(orders).join(' and ')}${near.length ? ` (within 10 % of the ${near.map(ordinal).join(' and the ')})` : ''}; the harmonic check of this study ${lowestPeak === null ? 'found no resonance peak in its range' : `scanned its lowest peak at h = ${lowestPeak.toFixed(2)}`} and ${passes ? 'passes the plain bank: no order in the spectra entered lies near a peak. The spectra are typical or entered ones: measure the real spectrum of the board before installing, and again when harmonic-producing loads are added' : 'fails the plain bank (see the harmonic check)'}`,
   partialBalance: (negative: number, zero: number, reactors: readonly PhaseLabel[]) =>
     `the capacitor-only compensator meets the power-factor target but balances only partly (|I2|/|I1| = ${negative.toFixed(1)} %, |I0|/|I1| = ${zero.toFixed(1)} %)${reactors.length ? `; full balance needs reactors on ${reactors.join(', ')}` : ''}`,
   /** @param suggestedA the primary trivar would choose for that current (1.25 × it, next standard rating) */

@@ -31,6 +31,7 @@ import { readRiseFlag } from './voltageRiseFlag.js';
 import { assertBoardModel } from '../board/modelGuards.js';
 import { judgedNominalOf } from '../board/nominalVoltages.js';
 import { WARNING_THRESHOLDS } from '../analysis/boardWarnings.js';
+import { headlineResonanceOrders } from './resonanceExcitation.js';
 import { distinctOrders, resonanceNearOrders, stepStateResonance, watchedOrdersNear } from './stepStateResonance.js';
 
 export interface VerifyCorrectionOptions {
@@ -106,8 +107,9 @@ function resonanceCapacitance(board: Board, corrected: Board, branches: readonly
 function pathFigures(
   board: Board,
   path: CapacitorPathReactance | null,
-): Pick<ResonanceCapacitance, 'supplyReactanceOhm' | 'neutralReactanceOhm' | 'reactanceShortCircuitKVA' | 'unequalCurrents' | 'orders' | 'lowestBelowSingleNode' | 'singleNodeOrder' | 'neutralTieReactanceOhm'> {
-  if (path === null) return { supplyReactanceOhm: null, neutralReactanceOhm: null, reactanceShortCircuitKVA: null, unequalCurrents: false, orders: [], lowestBelowSingleNode: false, singleNodeOrder: null, neutralTieReactanceOhm: null };
+): Pick<ResonanceCapacitance, 'supplyReactanceOhm' | 'neutralReactanceOhm' | 'reactanceShortCircuitKVA' | 'unequalCurrents' | 'orders' | 'lowestBelowSingleNode' | 'singleNodeOrder' | 'neutralTieReactanceOhm' | 'capacitorKvarAtNominalV' | 'reactorKvarAtNominalV'> {
+  if (path === null)
+    return { supplyReactanceOhm: null, neutralReactanceOhm: null, reactanceShortCircuitKVA: null, unequalCurrents: false, orders: [], lowestBelowSingleNode: false, singleNodeOrder: null, neutralTieReactanceOhm: null, capacitorKvarAtNominalV: 0, reactorKvarAtNominalV: 0 };
   const lowest = path.resonanceOrders[0];
   const x = (board.system === 'single-phase' ? shortCircuitPathImpedance(board) : supplyPathImpedance(board)).im;
   // n·V²/X_path is S_sc,X for a single loop or a balanced bank; anything else is weighed by the current each conductor carries.
@@ -122,6 +124,8 @@ function pathFigures(
     // order; within half a percent (a compensator's slightly unequal branches) it still names it.
     lowestBelowSingleNode: lowest !== undefined && path.singleNodeOrder !== null && lowest < path.singleNodeOrder * (1 - SAME_ORDER),
     singleNodeOrder: path.singleNodeOrder,
+    capacitorKvarAtNominalV: path.capacitorVA / 1000,
+    reactorKvarAtNominalV: path.reactorVA / 1000,
     neutralTieReactanceOhm: path.tiedToNeutral ? (neutralPathImpedance(board)?.im ?? null) : null,
   };
 }
@@ -325,6 +329,9 @@ export function verifyCorrection(board: Board, options: VerifyCorrectionOptions)
     warn('resonance', warningText.lowResonance(nearResonances, resonance.onBoardKvar > 0 ? (resonance.addedKvar > 0 ? 'both' : 'board') : 'bank', nearOrders, statesChecked), nearResonances[0]!, null);
   if (stepStates && nearPartial.length)
     warn('resonance-step-state', warningText.stepStateResonance(nearPartial, stepStates.fixedPart, nearResonances.length > 0, null, resonance.onBoardKvar > 0), nearPartial[0]!.lowestOrder, null);
+  // The orders that headline the verdict: near in some state, with significant typical content, and able to reach this capacitance.
+  const headline = new Set(headlineResonanceOrders(board, [...boardCapacitors, ...equipment.flatMap((g) => g.branches.filter((b) => b.susceptanceS > 0))]));
+  const headlineNear = [...new Set([...nearOrders, ...nearPartial.flatMap((st) => st.nearOrders)])].filter((h) => headline.has(h)).sort((a, b) => a - b);
   if (ssc === null && capacitorKvar > 0) warn('ideal-source', warningText.idealSource);
   const overloads = overloadsCaused(before, after);
   for (const o of overloads) warn('overload-caused', warningText.overloadCaused(o.message), o.value, o.threshold);
@@ -427,7 +434,8 @@ export function verifyCorrection(board: Board, options: VerifyCorrectionOptions)
     resonanceNearOrders: nearOrders,
     resonanceCapacitance: resonance,
     resonanceStepStates: stepStates,
-    resonanceNearHarmonic: nearResonances.length > 0 || nearPartial.length > 0,
+    resonanceHeadlineOrders: headlineNear,
+    resonanceNearHarmonic: headlineNear.length > 0,
     lightLoad,
     overloadsCaused: overloads.map((o) => ({ code: o.code, message: o.message })),
     warnings,

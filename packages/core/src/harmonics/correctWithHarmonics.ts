@@ -196,6 +196,7 @@ function asDetuned(report: CorrectionReport, p: number, percent: number, plainSe
       resonanceOrders: [],
       resonanceNearOrders: [],
       resonanceStepStates: null,
+      resonanceHeadlineOrders: [],
       resonanceNearHarmonic: false,
       warnings: withoutEstimate(report.verification.warnings),
     },

@@ -47,6 +47,8 @@ export interface CapacitorPathReactance {
   readonly tiedToNeutral: boolean;
   /** Q_C of these capacitors at nominal voltage, VA (what `worstRise` is worked at). */
   readonly capacitorVA: number;
+  /** Q_L of the shunt reactors at nominal voltage, VA (0 without reactors): what `singleNodeOrder` adds to S_sc,X. */
+  readonly reactorVA: number;
   /** The single-node figure √((S_sc,X + Q_L)/Q_C) at nominal voltage (Q_L of shunt reactors); the lowest order where the fundamental pattern is a mode of the network. Null without capacitors. */
   readonly singleNodeOrder: number | null;
 }
@@ -65,7 +67,7 @@ export function capacitorPathReactance(board: Board, branches: readonly LoadBran
   // A branch sized to nothing carries round-off (1e-13 of the rest): not a capacitor whose path counts.
   const largest = Math.max(0, ...branches.map((b) => -b.sNominal.im));
   const capacitive = branches.filter((b) => susceptanceOf(b) > 0 && -b.sNominal.im > 1e-9 * largest);
-  const fallback = { shortCircuitVA: boardFigure, throughNeutral: board.system === 'single-phase', resonanceOrders: [], worstRise: null, capacitorVA: 0, singleNodeOrder: null, tiedToNeutral: false };
+  const fallback = { shortCircuitVA: boardFigure, throughNeutral: board.system === 'single-phase', resonanceOrders: [], worstRise: null, capacitorVA: 0, reactorVA: 0, singleNodeOrder: null, tiedToNeutral: false };
   if (capacitive.length === 0) return fallback;
 
   // Nominal voltages to the source star point, each at its EMF's angle; the neutral bar at zero.
@@ -124,6 +126,7 @@ export function capacitorPathReactance(board: Board, branches: readonly LoadBran
     worstRise,
     tiedToNeutral: capacitive.some((b) => b.from === 'N' || b.to === 'N') && neutralX > 0,
     capacitorVA,
+    reactorVA,
     singleNodeOrder: Math.sqrt((capacitorVA ** 2 / pathVA + reactorVA) / capacitorVA),
   };
 }

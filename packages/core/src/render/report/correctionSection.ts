@@ -7,8 +7,9 @@ import type { ControllerSettings, CorrectionReport } from '../../correction/corr
 import type { CorrectionComparison } from '../../correction/compareCorrections.js';
 import type { HarmonicCorrectionReport } from '../../harmonics/correctWithHarmonics.js';
 import { correctionComparisonBlocks } from './correctionComparisonBlocks.js';
-import { arrangementDescriptions, arrangementNames, everyLineReadingWords, meteringPointWords, stepStatesClearWords, stepStateTable } from '../../correction/correctionWording.js';
+import { arrangementDescriptions, arrangementNames, everyLineReadingWords, meteringPointWords, ordersNearWords, stepStatesClearWords, stepStateTable } from '../../correction/correctionWording.js';
 import { levelText } from '../../correction/voltageRiseFlag.js';
+import { resonanceNearOrders } from '../../correction/stepStateResonance.js';
 import { fixed } from '../svgText.js';
 import { exportingLinesNote, isExportCurrentA, linePfText } from '../powerFactorText.js';
 import { renderPhasorDiagram } from '../renderPhasorDiagram.js';
@@ -262,7 +263,9 @@ function capacitanceWords(c: CorrectionReport['verification']['resonanceCapacita
     ...(c.addedKvar > 0 ? [`${fixed(c.addedKvar, 1)} kvar added, every step in (${statesBelow ? 'each step state below' : 'with fewer steps in, the orders lie higher'})`] : []),
     ...(c.onBoardKvar > 0 ? [`${fixed(c.onBoardKvar, 1)} kvar of leading loads already on the board (${c.loadsOnBoard.join(', ')})`] : []),
   ];
-  return `${parts.join(' + ')}${c.reactorKvar > 0 ? `; reactors added ${fixed(c.reactorKvar, 1)} kvar` : ''}`;
+  // The orders are worked from the capacitance: Qc at nominal voltage, beside what it delivers at the solved voltage.
+  const reactors = c.reactorKvar > 0 ? `; reactors added ${fixed(c.reactorKvarAtNominalV, 2)} kvar at nominal voltage (${fixed(c.reactorKvar, 1)} kvar at the solved voltage)` : '';
+  return `Qc = ${fixed(c.capacitorKvarAtNominalV, 2)} kvar at nominal voltage, what the order is worked from; at the solved voltage ${parts.join(' + ')}${reactors}`;
 }
 
 /** The resonance of the recommended capacitors with the supply, when the study could estimate it. */
@@ -296,6 +299,8 @@ export function resonanceSection(report: CorrectionReport): ReportSection | null
   // Where the harmonic check scanned the bank in the same study, its verdict decides, not the estimate.
   const check = (report as { harmonics?: { summary: string; check: unknown } }).harmonics;
   const scanned = check && check.check !== null ? check : null;
+  // Name the mode that is near, not only the order: the lowest mode may be clear while another is not.
+  const modesNear = ordersNearWords(report.verification.resonanceOrders, (o) => resonanceNearOrders(o)).join('; ');
   return {
     id: 'harmonics',
     title: 'Harmonics and resonance',
@@ -314,8 +319,8 @@ export function resonanceSection(report: CorrectionReport): ReportSection | null
       },
       near.length
         ? scanned
-          ? { kind: 'list', tone: 'warning', items: [`The estimate lies within ${fixed(100 * band, 0)} % of harmonic order ${near.join(', ')}; the harmonic check of this report scanned the bank and decides: ${scanned.summary}.`] }
-          : { kind: 'list', tone: 'warning', items: [`The resonance lies within ${fixed(100 * band, 0)} % of harmonic order ${near.join(', ')}, which common non-linear loads produce: a harmonic study and detuning reactors are strongly advised.`] }
+          ? { kind: 'list', tone: 'warning', items: [`The estimate lies within ${fixed(100 * band, 0)} % of a harmonic order: ${modesNear}; the harmonic check of this report scanned the bank and decides: ${scanned.summary}.`] }
+          : { kind: 'list', tone: 'warning', items: [`Within ${fixed(100 * band, 0)} % of a harmonic order, which common non-linear loads produce: ${modesNear}. A harmonic study and detuning reactors are strongly advised.`] }
         : { kind: 'paragraph', text: `With every step in, the resonance is not within ${fixed(100 * band, 0)} % of orders ${watched.join(', ')}. This is an estimate from the supply path's reactance only (its resistance damps the peak but hardly moves it; the classic √(Ssc/Qc) with Ssc from |Z| assumes X ≫ R); it does not replace a harmonic study of the board.` },
       ...stepStateBlocks(report, scanned),
     ],
