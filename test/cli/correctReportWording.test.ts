@@ -98,19 +98,19 @@ describe('correct report wording', () => {
   it('the recommendation says when an arrangement makes |I2|/|I1| notably worse (> 5 points), and so do the warnings', () => {
     const { board } = boardOf('examples/hillside-workshop.yaml');
     const c = compareCorrections(board, {});
-    // The compensator is recommended: the delta bank's resonance lies near the 11th, a significant order.
-    expect(c.recommended).toBe('balancing-compensator');
+    // The delta bank is recommended (least cost; its resonance estimate near the 11th is named, it does not rank).
+    expect(c.recommended).toBe('delta-bank');
     const v = c.outcomes.find((o) => o.arrangement === 'delta-bank')!.report!.verification;
     const [b, a] = [v.unbalance!.negativeSequenceCurrentPercent.before, v.unbalance!.negativeSequenceCurrentPercent.after];
     expect(a - b).toBeGreaterThan(5);
-    expect(c.why).toContain(`the delta bank raises |I2|/|I1| from ${b.toFixed(1)} % to ${a.toFixed(1)} %`);
+    expect(c.why).toContain(`the recommended delta bank raises |I2|/|I1| from ${b.toFixed(1)} % to ${a.toFixed(1)} %`);
     const report = c.outcomes.find((o) => o.arrangement === 'delta-bank')!.report!;
     expect(report.warnings.map((w) => w.code)).toContain('unbalance-worse');
     // The compensator lowers both: no such note for it.
     expect(c.why).not.toMatch(/compensator raises/);
     const text = runTrivar(['correct', 'examples/hillside-workshop.yaml']).stdout.replace(/\s+/g, ' ');
-    expect(text).toContain(`Recommendation balancing compensator:`);
-    expect(text).toContain(`the delta bank raises |I2|/|I1| from ${b.toFixed(1)} % to ${a.toFixed(1)} %`);
+    expect(text).toContain(`Recommendation delta bank:`);
+    expect(text).toContain(`the recommended delta bank raises |I2|/|I1| from ${b.toFixed(1)} % to ${a.toFixed(1)} %`);
     const delta = runTrivar(['correct', 'examples/hillside-workshop.yaml', '--arrangement', 'delta-bank']).stdout.replace(/\s+/g, ' ');
     expect(delta).toContain(`! the equipment makes the current unbalance worse: |I2|/|I1| rises from ${b.toFixed(1)} % to ${a.toFixed(1)} %`);
   });

@@ -5,14 +5,16 @@
  *
  * Recommendation rule (common practice, no source): first what meets the
  * target across the capacitance tolerance, then at nominal capacitance, then
- * nothing to do, then what meets the target but puts the supply resonance within
- * the band of a watched harmonic order in a state the controller can reach (the
- * estimate; a harmonic check's scan decides where the study has one), and after
- * all of those what meets the target but overloads a
+ * nothing to do, and after all of those what meets the target but overloads a
  * conductor or the supply that was not overloaded without it; among those the least cost (the unit choice's cost, plus a
  * reactor at twice the cost of a capacitor of the same kvar); costs within 5 %
  * count as equal and the lower losses after correction decide. Where nothing
  * meets the target, the arrangement that comes closest is named, and why.
+ * A supply resonance estimated near a harmonic order in a reachable step state does not rank: without
+ * the board's harmonic currents it is a reason for a harmonic study (or a detuned bank), which the
+ * verdict and the recommendation say, not for a dearer arrangement (hillside-workshop: a 96-unit
+ * compensator had been recommended over an 11.7-unit delta bank for its estimate near the 11th). Where
+ * the study has the board's spectra, the harmonic check's scan decides (correctWithHarmonicData).
  */
 import type { Board } from '../board/boardModel.js';
 import { InputError } from '../errors.js';
@@ -141,8 +143,6 @@ const STATUS_RANK: Record<CorrectionStatus, number> = {
 
 /** Where a build that meets the target but overloads a conductor or the supply ranks: after every one that meets it without, before a miss. */
 const OVERLOAD_RANK = 1.5;
-/** Where a build that meets the target but resonates near a harmonic order in a reachable step state ranks: after every one that meets it clear of one, before an overload. */
-const RESONANCE_RANK = 1.2;
 
 /**
  * Sizes, builds and verifies every arrangement that fits the board, and recommends one.
@@ -188,7 +188,7 @@ export function recommendArrangement(outcomes: readonly ArrangementOutcome[], am
   const resonates = (o: (typeof studied)[number]) => o.report.status.startsWith('meets') && o.report.verification.resonanceNearHarmonic;
   const rank = (o: (typeof studied)[number]) => {
     const r = STATUS_RANK[o.report.status];
-    return r <= 1 && overloads(o) ? OVERLOAD_RANK + r / 10 : r <= 1 && resonates(o) ? RESONANCE_RANK + r / 10 : r;
+    return r <= 1 && overloads(o) ? OVERLOAD_RANK + r / 10 : r;
   };
   const bestRank = Math.min(...candidates.map(rank));
   const pool = candidates.filter((o) => rank(o) === bestRank);
@@ -222,7 +222,7 @@ export function recommendArrangement(outcomes: readonly ArrangementOutcome[], am
   // Nothing to build: why, in the figures of each line's need, and what to do instead.
   const nothing = chosen.report.nothingToBuild;
   // The recommended build resonating near a harmonic order: none meets the target clear of one, and the verdict says it.
-  const resonating = resonates(chosen) && !overloads(chosen) ? [comparisonWording.resonates(names[chosen.arrangement])] : [];
+  const resonating = resonates(chosen) && !overloads(chosen) ? [comparisonWording.resonates(names[chosen.arrangement], candidates.filter((o) => o !== chosen && rank(o) <= 1 && !resonates(o)).map((o) => names[o.arrangement]))] : [];
   // Nor that a build raises the voltage above the flag level: each such arrangement with its figure, and what it means here.
   const rises = [chosen, ...others].filter((o) => o.figures.voltageRiseFlagged);
   const rise = rises.length

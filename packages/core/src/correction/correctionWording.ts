@@ -781,7 +781,7 @@ const STATUS_SHORT: Record<string, string> = {
 };
 
 export const comparisonWording = {
-  rule: 'first an arrangement that meets the target across the capacitance tolerance, then at nominal capacitance, then one that meets it but whose supply resonance lies within 10 % of a harmonic order in a state its controller can reach, then one that meets it but overloads a conductor or the supply; among those the least cost (nameplate kvar + 2 kvar-equivalent per unit, a reactor counted at twice its kvar); costs within 5 % are equal and the lower losses decide',
+  rule: 'first an arrangement that meets the target across the capacitance tolerance, then at nominal capacitance, then one that meets it but overloads a conductor or the supply; among those the least cost (nameplate kvar + 2 kvar-equivalent per unit, a reactor counted at twice its kvar); costs within 5 % are equal and the lower losses decide',
   noneStudied: 'no arrangement could be studied with these settings',
   why: (
     name: string,
@@ -821,8 +821,8 @@ export const comparisonWording = {
     return rest.length ? `${head}; ${rest.join('; ')}` : head;
   },
   /** Said where the recommended build resonates near a harmonic order in a step state: none meets the target clear of one. */
-  resonates: (name: string) =>
-    `note: no arrangement meets the target with its supply resonance clear of the watched harmonic orders in every step state; the recommended ${name} needs the harmonic study its warnings name`,
+  resonates: (name: string, clearOnes: readonly string[]) =>
+    `note: the recommended ${name}'s supply resonance lies near a harmonic order in a step state its controller can reach (an estimate: the board's harmonic currents are not given); it needs the harmonic study its warnings name, and a detuned bank where the board has harmonic-producing loads${clearOnes.length ? ` (the ${clearOnes.join(' and the ')}, dearer, ${clearOnes.length > 1 ? 'are' : 'is'} clear of one; the estimate alone does not rank)` : ''}`,
   /** What a compared arrangement overloads, said beside the recommendation. */
   overloads: (name: string, recommended: boolean, messages: readonly string[]) =>
     `${recommended ? 'note: no arrangement meets the target without an overload; with the recommended' : 'with the'} ${name} in, ${messages.join('; ')}`,
