@@ -599,6 +599,19 @@ function needsTable(r: CorrectionReport, label: PhaseLabeller): string {
   ) + `\n${wrapText(`kvar to add = P·(tan φ1 − tan φ2) at the solved voltage; the least step a bank may switch is ${fixed(r.nothingToBuild?.minStepKvar ?? 0, 2)} kvar (bank.minStepKvar)`, '  ', '    ')}`;
 }
 
+/** The head of a study's report: the board, the arrangement, the target, the verdict with its summary, and the reasons. */
+function studyHead(r: CorrectionReport, verdict: string): string[] {
+  const v = r.verification;
+  return [
+    headerLines(v.before).slice(0, 2).join('\n'),
+    wrapText(`correction: ${arrangementDescriptions(v.before.board.system, v.before.conventions.region)[r.arrangement]}`, '', '  '),
+    wrapText(`target: ${targetWords(r)}`, '', '  '),
+    '',
+    wrapText(`${verdict} — ${r.summary}`, '', '  '),
+    ...r.reasons.map((x) => wrapText(x, '  - ', '    ')),
+  ];
+}
+
 /**
  * The report of a study with nothing to build: the verdict, why in figures (each line's need, the
  * smallest step and unit, a build withheld because it made things worse) and what to do instead. No
@@ -607,14 +620,7 @@ function needsTable(r: CorrectionReport, label: PhaseLabeller): string {
 export function renderNothingToBuild(r: CorrectionReport): string {
   const v = r.verification;
   const label = labelsOf(v);
-  const parts = [
-    headerLines(v.before).slice(0, 2).join('\n'),
-    wrapText(`correction: ${arrangementDescriptions(v.before.board.system, v.before.conventions.region)[r.arrangement]}`, '', '  '),
-    wrapText(`target: ${targetWords(r)}`, '', '  '),
-    '',
-    wrapText(`${STATUS_WORDS['nothing-to-build']} — ${r.summary}`, '', '  '),
-    ...r.reasons.map((x) => wrapText(x, '  - ', '    ')),
-  ];
+  const parts = studyHead(r, STATUS_WORDS['nothing-to-build'] ?? 'NOTHING TO BUILD');
   parts.push(section('What each line needs') + needsTable(r, label));
   if (r.nothingToBuild) parts.push(section('What to do') + wrapText(r.nothingToBuild.advice.charAt(0).toUpperCase() + r.nothingToBuild.advice.slice(1), '  ', '    '));
   if (v.metering) parts.push(meteringSection(v.metering, lineTableNow(v.metering, label)));
@@ -637,15 +643,7 @@ export function renderCorrectionReport(r: CorrectionReport): string {
   if (r.status === 'nothing-to-build') return renderNothingToBuild(r);
   const v = r.verification;
   const label = labelsOf(v);
-  const parts = [
-    headerLines(v.before).slice(0, 2).join('\n'),
-    wrapText(`correction: ${arrangementDescriptions(v.before.board.system, v.before.conventions.region)[r.arrangement]}`, '', '  '),
-    wrapText(`target: ${targetWords(r)}`, '', '  '),
-    '',
-    wrapText(`${headline(r)} — ${r.summary}`, '', '  '),
-    ...r.reasons.map((x) => wrapText(x, '  - ', '    ')),
-    ...balanceLine(r).map((x) => wrapText(x, '  ', '    ')),
-  ];
+  const parts = [...studyHead(r, headline(r)), ...balanceLine(r).map((x) => wrapText(x, '  ', '    '))];
   if (r.sizing.arrangement === 'balancing-compensator') parts.push(section('Compensator sizing') + compensatorBlock(r.sizing, r.idealVerification, r.reactorResizing, r.fewerBranchesBuild, r.roundingBesideReactors, label));
   else {
     const shift = r.sizing.starPointShift;

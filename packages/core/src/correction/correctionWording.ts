@@ -6,7 +6,7 @@ import type { PhaseLabel } from '../board/conventions/phaseNames.js';
 import type { PhaseId } from '../board/boardModel.js';
 import type { PowerFactorSense } from '../analysis/boardResult.js';
 import type { Arrangement, TargetDefinition } from './correctionSpec.js';
-import type { BuildVerdict, ControllerSettings, CtBasis, LeastSwitchedStep, SmallBranch, StepStateCurrent, StepStateOrders, StepStateResonance, SparedBranch, TargetName } from './correctionResult.js';
+import type { BuildVerdict, ControllerSettings, CtBasis, LeastSwitchedStep, SmallBranch, WithheldBuild, StepStateCurrent, StepStateOrders, StepStateResonance, SparedBranch, TargetName } from './correctionResult.js';
 import { argumentIssueError, checkListArgument, checkNumberArgument, checkObjectArgument, checkTextArgument, checkWordArgument } from '../_internal/argumentChecks.js';
 import { starWordOf, type StarWord } from '../board/conventions/regionWords.js';
 import { REGIONS, type Region } from '../board/conventions/region.js';
@@ -409,14 +409,10 @@ const kvarText = (x: number) => x.toFixed(2);
 const listWords = (xs: readonly string[]) => (xs.length <= 1 ? xs.join('') : `${xs.slice(0, -1).join(', ')} and ${xs.at(-1)}`);
 
 /** What the words of a withheld build read (WithheldBuild with its idle lines labelled). */
-interface WithheldWordsOf {
+type WithheldWordsOf = Omit<WithheldBuild, 'reasons' | 'idleLinesLoaded'> & {
   readonly reasons: readonly string[];
-  readonly capacitorKvar: number;
-  readonly reactorKvar: number;
-  readonly targetPfBefore: number | null;
-  readonly targetPfWithBuild: number | null;
   readonly idleLinesLoaded: readonly { readonly line: string; readonly currentA: number }[];
-}
+};
 
 /** The words of a study that ends with nothing to build (nothingToBuild.ts holds the figures). */
 export const nothingToBuildWords = {
