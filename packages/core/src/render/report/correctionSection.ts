@@ -94,8 +94,19 @@ function controllerFacts(c: ControllerSettings, system: string, everyLine: strin
     kind: 'facts',
     items: [
       ['Controller outputs', `${c.outputsUsed} of ${c.outputs} used; ${c.measurement === 'one-line' ? (system === 'single-phase' ? 'read from one CT on the line' : 'balanced steps, read from one CT') : `steps serving single lines: the controller measures every line (${everyLine})`}`],
-      ['Current transformer', `${amps(c.ctPrimaryA)}/${amps(c.ctSecondaryA)} A${c.ctChosen ? '' : ' (given)'} at ${c.ctBasis.placeWords}; ${c.ctChosen ? `the next standard primary at or above 1.25 × ${c.ctBasis.currentWords}; use yours if it differs` : `checked against ${c.ctBasis.currentWords}`}`],
-      ['Response threshold (C/k)', `${fixed(c.responseThresholdA, 3)} A for the smallest step (${fixed(c.smallestStepKvar, 2)} kvar at nominal voltage)${c.thresholdBasis === 'line-pair' ? ", per line: the step is across two lines, and each of them sees √3/2 of its branch current as reactive current, read against that line's voltage to the neutral" : ''}; set ${fixed(c.responseSettingA, 3)} A (${c.settingFraction} × C/k)`],
+      [
+        'Current transformer',
+        `${amps(c.ctPrimaryA)}/${amps(c.ctSecondaryA)} A${c.ctChosen ? '' : ' (given)'} at ${c.ctBasis.placeWords}; ${c.ctChosen ? `the next standard primary at or above 1.25 × ${c.ctBasis.currentWords}; use yours if it differs` : `checked against ${c.ctBasis.currentWords}`}${
+          // A CT given far below the current it carries saturates: said on its own line, as `trivar correct` says it.
+          c.ctNeeded ? `. Too small: that current is ${fixed(c.ctBasis.currentA / c.ctPrimaryA, 1)} × its primary, so it saturates and the controller misreads; the CT it needs: ${amps(c.ctNeeded.primaryA)}/${amps(c.ctSecondaryA)} A` : ''
+        }`,
+      ],
+      [
+        'Response threshold (C/k)',
+        `${fixed(c.responseThresholdA, 3)} A for the smallest step (${fixed(c.smallestStepKvar, 2)} kvar at nominal voltage)${c.thresholdBasis === 'line-pair' ? ", per line: the step is across two lines, and each of them sees √3/2 of its branch current as reactive current, read against that line's voltage to the neutral" : ''}; set ${fixed(c.responseSettingA, 3)} A (${c.settingFraction} × C/k)${
+          c.ctNeeded ? ` on the CT given; on ${amps(c.ctNeeded.primaryA)}/${amps(c.ctSecondaryA)} A: C/k ${fixed(c.ctNeeded.responseThresholdA, 3)} A, set ${fixed(c.ctNeeded.responseSettingA, 3)} A` : ''
+        }`,
+      ],
       ['Power-factor band', band],
       ['Switching', `delay ${c.switchingDelayS} s; a step is switched on again no sooner than ${c.reconnectionDelayS} s after it went off (discharge time ${c.dischargeTimeS} s, ${c.dischargeRule})`],
     ],
