@@ -398,3 +398,11 @@ export function belowTargetWords(b: ProfileBankResult): string | null {
   const where = b.measuredAt === null || b.measuredAt === undefined ? 'board PF' : b.measuredAt === 'origin' ? "PF at the origin (the supply's terminals, where the controller measures)" : `PF at the incomer of ${b.measuredAt} (where the controller measures)`;
   return `${where} below ${pf(set.targetPf)} with the bank: ${hours(t.hours)} h of import — ${why.join('; ')}`;
 }
+
+/** With a bank's supply resonance: what the estimate leaves out, deferring to a harmonic study and licensed practice. */
+export const BANK_RESONANCE_CAUTION =
+  "The resonance orders are estimated from the supply path's reactances and the bank's capacitances at nominal voltage, not from the board's harmonic currents: where harmonic-producing loads are on the board, or may be added, a harmonic study decides whether the steps need detuning reactors, and the bank is specified and installed by a licensed professional to the local codes.";
+
+/** The headline over the step-state check: where the supply resonance lies near an order that matters, or that it does not. */
+export const bankResonanceHeadline = (clause: string | null): string =>
+  clause === null ? "the bank's supply resonance: no step state within 10 % of a harmonic order that matters here" : `the bank's ${clause.replace(/^its /, '')}`;
