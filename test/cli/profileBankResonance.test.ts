@@ -17,7 +17,7 @@ interface State { outputsIn: number[]; alike: number[][]; capacitorKvarAtNominal
 interface Resonance {
   stepStates: { states: State[]; combinations: number; nearStates: number; fixedPart: { reactors: boolean; capacitors: boolean } };
   headlineOrders: number[];
-  headline: string;
+  headline: string | null;
   warnings: string[];
   table: { header: string[]; rows: string[][]; note: string } | null;
   clear: string | null;
@@ -71,13 +71,13 @@ describe('a delta bank sized from the profile on a three-wire board', () => {
     for (const st of near.slice(0, 4)) expect(res.warnings[0]).toContain(`${st.capacitorKvarAtNominalV.toFixed(1)} kvar, near ${st.orders[0]!.toFixed(1)}`);
     // The welding outlet across B-C carries triplens line to line: the 9th and 15th headline too (resonanceExcitation.ts).
     expect(res.headlineOrders).toEqual([...new Set(near.flatMap((s) => s.nearOrders))].sort((a, b) => a - b));
-    expect(res.headline).toContain('in 5 states with fewer steps in');
-    expect(res.headline).not.toContain('with every step in');
+    expect(res.headline!).toContain('in 5 states with fewer steps in');
+    expect(res.headline!).not.toContain('with every step in');
     expect(res.clear).toBeNull();
   });
 
   it('text and --json agree: headline, warnings, every table row, the caution', () => {
-    expect(words).toContain(flat(res.headline));
+    expect(words).toContain(flat(res.headline!));
     for (const w of res.warnings) expect(words).toContain(flat(`! warning: ${w}`));
     for (const row of res.table!.rows) expect(text).toMatch(new RegExp(row.map((c) => c.replace(/[.*+?^${}()|[\]\\]/g, '\\$&')).join('\\s+')));
     expect(res.table!.rows[0]).toEqual(['1+2+3+4+5+6 (every step)', '60.0', res.stepStates.states[0]!.lowestOrder!.toFixed(2), '-']);
@@ -96,13 +96,39 @@ describe('a star bank on the neutral of the four-wire board', () => {
     expect(res.warnings[0]).toMatch(/^the bank and the supply inductance resonate near harmonic order/);
     expect(res.warnings[1]).toMatch(/^also with fewer steps in/);
     expect(res.headlineOrders).toContain(5);
-    expect(res.headline).toContain('with every step in and in');
-    expect(words).toContain(flat(res.headline));
+    expect(res.headline!).toContain('with every step in and in');
+    expect(words).toContain(flat(res.headline!));
   });
 
   it('the star bank on the neutral resonates lower than √(S_sc,X/Q) of the line path alone (the neutral in its zero-sequence mode)', () => {
     // capacitorPathReactance.ts: the lowest order of a star bank on the neutral lies below the single-node estimate.
     const xPath = ((0.06 * 400 ** 2) / 160e3) * (5 / Math.sqrt(26)) + 0.18 * 0.08;
     for (const st of res.stepStates.states) expect(st.lowestOrder!).toBeLessThan(Math.sqrt(400 ** 2 / xPath / (st.capacitorKvarAtNominalV * 1e3)));
+  });
+});
+
+describe('a small bank on a stiff supply (the osier-mill installation example)', () => {
+  const args = ['profile', 'examples/osier-mill-studios.yaml', '--data', 'examples/osier-mill-day.csv', '--bank'];
+  const json = runTrivar([...args, '--json']);
+  const text = flat(runTrivar(args).stdout);
+  const res = JSON.parse(json.stdout).bank.resonance as Resonance;
+
+  it('is clear in every state: no table, no warning, no headline, the one clear line in the text with the caution', () => {
+    expect(res.stepStates.nearStates).toBe(0);
+    expect(res.table).toBeNull();
+    expect(res.warnings).toEqual([]);
+    expect(res.headline).toBeNull();
+    expect(res.headlineOrders).toEqual([]);
+    expect(text).toContain(flat(`the bank's supply resonance in ${res.clear!}`));
+    expect(text).toContain(flat(res.caution));
+  });
+
+  it('fewer steps in, less capacitance, a higher lowest order', () => {
+    const states = res.stepStates.states;
+    for (let k = 1; k < states.length; k++) {
+      expect(states[k]!.capacitorKvarAtNominalV).toBeLessThan(states[k - 1]!.capacitorKvarAtNominalV);
+      expect(states[k]!.lowestOrder!).toBeGreaterThan(states[k - 1]!.lowestOrder!);
+    }
+    expect(res.clear).toContain(`lowest order ${states[0]!.lowestOrder!.toFixed(2)} with every step in`);
   });
 });

@@ -197,8 +197,8 @@ function resonanceLines(res: ProfileBankResonance | null): string[] {
         ),
         wrapText(res.table.note, '    ', '      '),
       ]
-    : [wrapText(res.clear!, '    ', '      ')];
-  return ['', wrapText(res.headline, '  ', '    '), ...res.warnings.map((w) => wrapText(`! warning: ${w}`, '  ', '    ')), ...table];
+    : [wrapText(`the bank's supply resonance in ${res.clear!}`, '  ', '    ')];
+  return ['', ...(res.headline ? [wrapText(res.headline, '  ', '    ')] : []), ...res.warnings.map((w) => wrapText(`! warning: ${w}`, '  ', '    ')), ...table];
 }
 
 /** Why `--bank` gave no bank, under the heading the bank would have had. */

@@ -25,8 +25,8 @@ export interface ProfileBankResonance {
   readonly stepStates: StepStateResonance;
   /** The watched orders near a resonance in any state that can drive it hard (the rule of correct's verdict), ascending. */
   readonly headlineOrders: readonly number[];
-  /** One line: where the resonance lies near an order that matters, or that no state does. */
-  readonly headline: string;
+  /** One line where some state lies near a watched order: near one that headlines `trivar correct`'s verdict, or only near others; null where none does (`clear` says so). */
+  readonly headline: string | null;
   /** A warning for the every-step-in state near a watched order, one naming the states with fewer steps in near one. */
   readonly warnings: readonly string[];
   /** The step states as a table where any lies near a watched order; else null and `clear` says so in a line. */
@@ -81,7 +81,7 @@ export function profileBankResonance(board: Board, steps: readonly SwitchedStep[
   return {
     stepStates: states,
     headlineOrders,
-    headline: bankResonanceHeadline(clause),
+    headline: bankResonanceHeadline(clause, anyNear),
     warnings,
     table: anyNear ? stepStateTable(states) : null,
     clear: anyNear ? null : stepStatesClearWords(states),
