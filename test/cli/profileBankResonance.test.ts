@@ -132,3 +132,21 @@ describe('a small bank on a stiff supply (the osier-mill installation example)',
     expect(res.clear).toContain(`lowest order ${states[0]!.lowestOrder!.toFixed(2)} with every step in`);
   });
 });
+
+describe("--correction-bank: the correction study's bank checked as trivar correct built it", () => {
+  const board = 'test/fixtures/profile/gravel-pit-crusher.yaml';
+  const profile = JSON.parse(runTrivar(['profile', board, '--data', WEEK, '--correction-bank', '--json']).stdout).bank as { design: { arrangement: string }; resonance: Resonance };
+  const correct = JSON.parse(runTrivar(['correct', board, '--json']).stdout) as { outcomes: { arrangement: string; report: { verification: { resonanceStepStates: Resonance['stepStates'] } } }[] };
+
+  it("the same states and orders as correct gives its bank (a delta stays a delta, not the simulator's star on the neutral)", () => {
+    const own = correct.outcomes.find((o) => o.arrangement === profile.design.arrangement)!.report.verification.resonanceStepStates;
+    expect(profile.design.arrangement).toBe('delta-bank');
+    const { states } = profile.resonance.stepStates;
+    expect(states.map((s) => s.outputsIn)).toEqual(own.states.map((s) => s.outputsIn));
+    states.forEach((s, k) => {
+      expect(s.orders).toHaveLength(own.states[k]!.orders.length);
+      s.orders.forEach((h, j) => expect(Math.abs(h - own.states[k]!.orders[j]!) / h).toBeLessThan(1e-9));
+    });
+    expect(profile.resonance.stepStates.nearStates).toBe(own.nearStates);
+  });
+});

@@ -221,7 +221,7 @@ export function bankOverProfile(input: BankOverProfileInput, options: Pick<Profi
       settledShortTrial,
       neverClosed,
       targetOutOfReach,
-      resonance: profileBankResonance(board, steps, fixed),
+      resonance: profileBankResonance(board, steps, fixed, designed?.built),
       after: input.summarise(run.figures),
     };
     return { bank, run };

@@ -3,16 +3,18 @@
  * same check `trivar correct` makes of the bank it builds (correction/stepStateResonance.ts for the orders,
  * resonanceExcitation.ts for the orders that headline, correctionWording.ts for the warnings and the table).
  *
- * The steps are placed as the simulation places them (simulateBank.ts stepEdges: a three-phase step a star to
- * the neutral where the board has one, else a delta), each at its kvar at nominal voltage, without detuning.
+ * A correction study's bank (--correction-bank) is checked as that study built it: its branches, connection and
+ * detuning. Steps sized here or written in profile.bank.steps are placed as the simulation places them
+ * (simulateBank.ts stepEdges: a three-phase step a star to the neutral where the board has one, else a delta),
+ * each at its kvar at nominal voltage, without detuning.
  * The board's own loads are driven by the data and change from interval to interval, so their capacitance is
  * not counted: the orders are the bank's with the supply.
  */
 import type { Board } from '../board/boardModel.js';
 import { conventionsOf } from '../board/conventions/boardConventions.js';
-import type { StepStateResonance } from '../correction/correctionResult.js';
+import type { BankStep, StepStateResonance } from '../correction/correctionResult.js';
 import { resonanceSummaryClause, stepStatesClearWords, stepStateTable, warningText, type StepStateTable } from '../correction/correctionWording.js';
-import { equipmentGroups, susceptanceFromKvar, type BranchSlot } from '../correction/equipment.js';
+import { equipmentGroups, susceptanceFromKvar, type BranchSlot, type EquipmentGroup } from '../correction/equipment.js';
 import { headlineResonanceOrders } from '../correction/resonanceExcitation.js';
 import { stepStateResonance } from '../correction/stepStateResonance.js';
 import type { SwitchableStep } from '../correction/switchedStepStates.js';
@@ -35,35 +37,48 @@ export interface ProfileBankResonance {
   readonly caution: string;
 }
 
-/**
- * The resonance check of a simulated bank's steps. Null where there is no switched step, or no estimate (an
- * ideal source, a path without reactance).
- * @param steps the switched steps, in the controller's order (output: the step's number where a designed bank gives one)
- * @param fixed the always-connected part
- */
-export function profileBankResonance(board: Board, steps: readonly SwitchedStep[], fixed: readonly SwitchedStep[]): ProfileBankResonance | null {
-  if (!steps.length) return null;
+/** A switched step as the simulation places it (simulateBank.ts stepEdges), at its kvar at nominal voltage, undetuned. */
+function placedAsSimulated(board: Board, s: SwitchedStep, output: number | null): SwitchableStep {
   const omega = 2 * Math.PI * board.frequencyHz;
+  const edges = stepEdges(board, s.channel);
+  // Every branch of a step carries the same share at the same voltage: one capacitance per branch.
+  const { edge, share } = edges[0]!;
+  return { output, branches: edges.map((e) => `${e.edge.from}-${e.edge.to}`), capacitancePerBranchUF: (susceptanceFromKvar(s.kvar * share, edge.vNominal) / omega) * 1e6, detuningFactor: 0 };
+}
+
+/** The bank's branches with every step in (and the fixed part's share), as correct's equipment groups. */
+function equipmentOfSteps(board: Board, steps: readonly SwitchableStep[]): EquipmentGroup[] {
+  const omega = 2 * Math.PI * board.frequencyHz;
+  const ll = board.nominalLineToLineV ?? board.nominalLineToNeutralV;
   const slots = new Map<string, BranchSlot & { susceptanceS: number; fixedSusceptanceS: number }>();
-  const placed = (s: SwitchedStep, output: number | null): SwitchableStep => {
-    const branches = stepEdges(board, s.channel).map(({ edge, share }) => {
-      const branch = `${edge.from}-${edge.to}`;
-      const b = susceptanceFromKvar(s.kvar * share, edge.vNominal);
-      const slot = slots.get(branch) ?? { branch, from: edge.from as BranchSlot['from'], to: edge.to as BranchSlot['to'], vNominal: edge.vNominal, susceptanceS: 0, fixedSusceptanceS: 0 };
-      slots.set(branch, { ...slot, susceptanceS: slot.susceptanceS + b, fixedSusceptanceS: slot.fixedSusceptanceS + (output === null ? b : 0) });
-      return { branch, b };
-    });
-    // Every branch of a step carries the same share at the same voltage: one capacitance per branch.
-    return { output, branches: branches.map((x) => x.branch), capacitancePerBranchUF: (branches[0]!.b / omega) * 1e6, detuningFactor: 0 };
-  };
-  const bankSteps = [...steps.map((s, k) => placed(s, s.output ?? k + 1)), ...fixed.map((s) => placed(s, null))];
+  for (const s of steps)
+    for (const branch of s.branches) {
+      const [from, to] = branch.split('-') as [BranchSlot['from'], BranchSlot['to']];
+      const b = (omega * s.capacitancePerBranchUF * 1e-6) / (1 - s.detuningFactor);
+      const vNominal = to === 'N' || to === 'star' ? board.nominalLineToNeutralV : ll;
+      const slot = slots.get(branch) ?? { branch, from, to, vNominal, susceptanceS: 0, fixedSusceptanceS: 0 };
+      slots.set(branch, { ...slot, susceptanceS: slot.susceptanceS + b, fixedSusceptanceS: slot.fixedSusceptanceS + (s.output === null ? b : 0) });
+    }
   const all = [...slots.values()];
-  const equipment = equipmentGroups(
+  return equipmentGroups(
     'bank',
     all.map(({ susceptanceS: _s, fixedSusceptanceS: _f, ...slot }) => slot),
     all.map((s) => s.susceptanceS),
     { fixedSusceptances: all.map((s) => s.fixedSusceptanceS), naming: conventionsOf(board).phaseNames },
   );
+}
+
+/**
+ * The resonance check of a simulated bank's steps. Null where there is no switched step, or no estimate (an
+ * ideal source, a path without reactance).
+ * @param steps the switched steps, in the controller's order (output: the step's number where a designed bank gives one)
+ * @param fixed the always-connected part
+ * @param built the correction study's steps as built, where the bank is its design: checked in their own connection (a delta stays a delta)
+ */
+export function profileBankResonance(board: Board, steps: readonly SwitchedStep[], fixed: readonly SwitchedStep[], built?: readonly BankStep[]): ProfileBankResonance | null {
+  if (!steps.length && !built?.some((s) => s.output !== null)) return null;
+  const bankSteps: readonly SwitchableStep[] = built ?? [...steps.map((s, k) => placedAsSimulated(board, s, s.output ?? k + 1)), ...fixed.map((s) => placedAsSimulated(board, s, null))];
+  const equipment = equipmentOfSteps(board, bankSteps);
   const states = stepStateResonance({ board, equipment, steps: bankSteps, boardCapacitors: [] });
   if (states === null) return null;
   const [allIn, ...partial] = states.states;
