@@ -83,7 +83,10 @@ describe('a delta bank whose B-C trim never closes over the data', () => {
 
   it('the text: the hours with their reason and figures, the step that never closed, never "every step in"', () => {
     const text = runTrivar(['profile', BOARD, '--data', WEEK, '--correction-bank']).stdout.replace(/\s+/g, ' ');
-    expect(text).not.toContain('every step in');
+    // The hours below the target (up to the voltage-rise line): the resonance check after it names "every step in" as a step state.
+    const hours = text.slice(text.indexOf('board PF below'), text.indexOf('largest voltage rise'));
+    expect(hours.length).toBeGreaterThan(0);
+    expect(hours).not.toContain('every step in');
     expect(text).toContain('board PF below 0.95 with the bank: 50.0 h of import — 48.8 h with the steps still open on lines short of the target too large for them, at their rated kvar carrying those lines past unity into leading (33.1 kvar three-phase against at most 18.9 kvar lagging on the board, 33.1 kvar across B-C against at most 32.4 kvar lagging on its lines and 13.8 kvar across C-A against at most 13.2 kvar lagging on its lines): steps too coarse for that load');
     expect(text).toContain('33.1 kvar across B-C against at most 32.4 kvar lagging on its lines');
     expect(text).toContain('1.25 h with the controller on its way');

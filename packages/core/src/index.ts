@@ -197,6 +197,7 @@ export { simulateBank } from './profile/simulateBank.js';
 export type { MonthReading } from './profile/monthlyBilling.js';
 export type { ProfileSummary, ConductorSummary, VoltageSummary, WorstInterval, ResolvedLimits } from './profile/summariseFigures.js';
 export type { ProfileStudy, ProfileStudyInput, ProfileStudyOptions, ProfileResult, ProfileBankResult, BankStepRun } from './profile/studyProfile.js';
+export type { ProfileBankResonance } from './profile/profileBankResonance.js';
 export type { BelowTarget } from './profile/belowTargetHours.js';
 export type { NeverClosedStep } from './profile/stepsNeverClosed.js';
 export { studyProfile } from './profile/studyProfile.js';

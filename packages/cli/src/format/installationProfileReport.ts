@@ -119,7 +119,8 @@ export function renderInstallationProfileReport(r: InstallationProfileResult, cu
         `  at the supply (${main.board}): billing power factor ${billingPowerFactorText(main.before.energy.billingPf)} → ${billingPowerFactorText(main.after!.energy.billingPf)}; peak line current ${fixed(Math.max(...main.before.conductors.filter((c) => c.conductor !== 'N').map((c) => c.maxA)), 1)} A → ${fixed(Math.max(...main.after!.conductors.filter((c) => c.conductor !== 'N').map((c) => c.maxA)), 1)} A`,
       );
   }
-  parts.push(...warningLines(r.warnings), section('Cautions'), ...r.cautions.map((c) => `  - ${c}`));
+  const cautions = r.bank?.resonance ? [...r.cautions, r.bank.resonance.caution] : r.cautions;
+  parts.push(...warningLines(r.warnings), section('Cautions'), ...cautions.map((c) => `  - ${c}`));
   return `${parts.join('\n')}\n`;
 }
 

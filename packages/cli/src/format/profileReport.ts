@@ -1,5 +1,5 @@
 /** ProfileResult → the text report of `trivar profile`. */
-import { belowTargetWords, billingPowerFactorText, contactorLifeWords, intervalSequenceWords, labellerOf, percentBesideEdges, type PhaseLabeller, type ProfileBankResult, type ProfileResult, type ProfileSummary, type ScenarioResult, type ScenarioTariff, type BoardScenarios, type VoltageUnbalanceLimit } from '@trivar/core';
+import { belowTargetWords, billingPowerFactorText, contactorLifeWords, intervalSequenceWords, labellerOf, percentBesideEdges, type PhaseLabeller, type ProfileBankResonance, type ProfileBankResult, type ProfileResult, type ProfileSummary, type ScenarioResult, type ScenarioTariff, type BoardScenarios, type VoltageUnbalanceLimit } from '@trivar/core';
 import { fixed, renderTable, section, thousands } from './textTable.js';
 import { wrapText } from './wrapText.js';
 
@@ -171,6 +171,7 @@ export function bankLines(r: { readonly bank: ProfileResult['bank']; readonly be
     `  billing power factor ${billingPowerFactorText(r.before.energy.billingPf)} → ${billingPowerFactorText(b.after.energy.billingPf)}; leading import ${hours(r.before.leadingHours)} h → ${hours(b.after.leadingHours)} h`,
     ...belowTargetLines(b),
     `  ${b.voltageRiseAt === null ? (b.voltageRiseWords ?? 'no voltage rise from the bank') : `largest voltage rise from the bank ${fixed(b.voltageRisePercent, 2)} % of nominal (${b.voltageRiseAt})`}; highest voltage with it ${percentBeside(Math.max(...b.after.voltages.map((v) => v.maxPercent)), r.limits)} %`,
+    ...resonanceLines(b.resonance ?? null),
   ];
   return lines.join('\n');
 }
@@ -179,6 +180,25 @@ export function bankLines(r: { readonly bank: ProfileResult['bank']; readonly be
 function belowTargetLines(b: ProfileBankResult): string[] {
   const words = belowTargetWords(b);
   return words ? [wrapText(words, '  ', '    ')] : [];
+}
+
+/**
+ * The bank's supply resonance in every step state: the headline, the warnings, then the states as a table where
+ * any lies near a watched order, else one line; nothing where there is no estimate (an ideal source).
+ */
+function resonanceLines(res: ProfileBankResonance | null): string[] {
+  if (!res) return [];
+  const table = res.table
+    ? [
+        renderTable(
+          res.table.header.map((header, k) => ({ header, align: k === 0 || k === 3 ? ('left' as const) : ('right' as const) })),
+          res.table.rows,
+          '    ',
+        ),
+        wrapText(res.table.note, '    ', '      '),
+      ]
+    : [wrapText(`the bank's supply resonance in ${res.clear!}`, '  ', '    ')];
+  return ['', ...(res.headline ? [wrapText(res.headline, '  ', '    ')] : []), ...res.warnings.map((w) => wrapText(`! warning: ${w}`, '  ', '    ')), ...table];
 }
 
 /** Why `--bank` gave no bank, under the heading the bank would have had. */
@@ -225,7 +245,8 @@ export function renderProfileReport(r: ProfileResult, currency: string, label: P
   ];
   if (r.bank) parts.push(section('Automatic bank over the profile'), bankLines(r));
   else if (r.bankNotSized) parts.push(section('Automatic bank over the profile'), noBankLines(r.bankNotSized.words));
-  parts.push(...warningLines(r.warnings), section('Cautions'), ...r.cautions.map((c) => `  - ${c}`));
+  const cautions = r.bank?.resonance ? [...r.cautions, r.bank.resonance.caution] : r.cautions;
+  parts.push(...warningLines(r.warnings), section('Cautions'), ...cautions.map((c) => `  - ${c}`));
   return `${parts.join('\n')}\n`;
 }
 

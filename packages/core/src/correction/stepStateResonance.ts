@@ -15,9 +15,9 @@
 import type { Board, LoadBranch } from '../board/boardModel.js';
 import { capacitorPathReactance } from '../network/capacitorPathReactance.js';
 import { CORRECTION_DEFAULTS } from './correctionDefaults.js';
-import type { BankStep, StepStateOrders, StepStateResonance } from './correctionResult.js';
+import type { StepStateOrders, StepStateResonance } from './correctionResult.js';
 import { addCorrectionEquipment, kvarFromSusceptance, type EquipmentGroup } from './equipment.js';
-import { equipmentWithStepsOut } from './switchedStepStates.js';
+import { equipmentWithStepsOut, type SwitchableStep } from './switchedStepStates.js';
 
 /** The watched orders (CORRECTION_DEFAULTS.resonanceWatchedOrders, with why) that a resonance order lies near: the one band every resonance check uses. */
 export const resonanceNearOrders = (order: number): number[] =>
@@ -37,8 +37,8 @@ export interface StepStateResonanceInputs {
   readonly board: Board;
   /** The equipment with every step in (the build verified). */
   readonly equipment: readonly EquipmentGroup[];
-  /** The bank's steps as built: the fixed part (output null) stays in, the others switch. */
-  readonly steps: readonly BankStep[];
+  /** The bank's steps as built: the fixed part (output null) stays in, the others switch (only what switching them out reads). */
+  readonly steps: readonly SwitchableStep[];
   /** Capacitive loads already on the board, taken as capacitance in every state (as the every-step-in estimate takes them). */
   readonly boardCapacitors: readonly LoadBranch[];
 }

@@ -80,8 +80,11 @@ export function stepLineCurrents(step: BankStep, phases: readonly PhaseId[], vol
   return phases.map((p) => into.get(p)!);
 }
 
+/** What switching a step out reads of it: its output (null: the fixed part), branches, capacitance per branch and detuning. */
+export type SwitchableStep = Pick<BankStep, 'output' | 'branches' | 'capacitancePerBranchUF' | 'detuningFactor'>;
+
 /** The equipment with the steps not in `stepsIn` switched out (their capacitance taken off their capacitor branches). */
-export function equipmentWithStepsOut(equipment: readonly EquipmentGroup[], steps: readonly BankStep[], stepsIn: readonly boolean[], omega: number): EquipmentGroup[] {
+export function equipmentWithStepsOut(equipment: readonly EquipmentGroup[], steps: readonly SwitchableStep[], stepsIn: readonly boolean[], omega: number): EquipmentGroup[] {
   return equipment.map((g) => ({
     ...g,
     branches: g.branches.map((br) => {

@@ -12,6 +12,7 @@ import { closingsBasisWords, EXTRAPOLATION_BELOW_HOURS, fewerStepsWords, frequen
 import type { ProfileSpec } from './profileSpec.js';
 import type { BankRun } from './simulateBank.js';
 import { sizeBankSteps } from './sizeBankSteps.js';
+import { profileBankResonance } from './profileBankResonance.js';
 import type { IntervalFigures } from './solveBatch.js';
 import type { ProfileSummary } from './summariseFigures.js';
 import type { ProfileBankResult, ProfileStudyOptions } from './studyProfile.js';
@@ -220,6 +221,7 @@ export function bankOverProfile(input: BankOverProfileInput, options: Pick<Profi
       settledShortTrial,
       neverClosed,
       targetOutOfReach,
+      resonance: profileBankResonance(board, steps, fixed, designed?.built),
       after: input.summarise(run.figures),
     };
     return { bank, run };

@@ -398,3 +398,19 @@ export function belowTargetWords(b: ProfileBankResult): string | null {
   const where = b.measuredAt === null || b.measuredAt === undefined ? 'board PF' : b.measuredAt === 'origin' ? "PF at the origin (the supply's terminals, where the controller measures)" : `PF at the incomer of ${b.measuredAt} (where the controller measures)`;
   return `${where} below ${pf(set.targetPf)} with the bank: ${hours(t.hours)} h of import — ${why.join('; ')}`;
 }
+
+/** With a bank's supply resonance: what the estimate leaves out, deferring to a harmonic study and licensed practice. */
+export const BANK_RESONANCE_CAUTION =
+  "The resonance orders are estimated from the supply path's reactances and the bank's capacitances at nominal voltage, not from the board's harmonic currents: where harmonic-producing loads are on the board, or may be added, a harmonic study decides whether the steps need detuning reactors, and the bank is specified and installed by a licensed professional to the local codes.";
+
+/**
+ * The line over the step-state check: where the supply resonance lies near an order that headlines (`clause`,
+ * correct's verdict clause), near only orders that do not (the 17th and 19th, or triplens that cannot reach the
+ * bank), or near none (null: the clear line says it).
+ */
+export const bankResonanceHeadline = (clause: string | null, nearAny: boolean): string | null =>
+  clause !== null
+    ? `the bank's ${clause.replace(/^its /, '')}`
+    : nearAny
+      ? "the bank's supply resonance lies near a harmonic order only in orders typical spectra carry little of, or that cannot reach the bank (see the warnings)"
+      : null;

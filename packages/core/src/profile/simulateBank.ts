@@ -57,7 +57,7 @@ export function channelReadingAt(figures: IntervalFigures, phaseIndex: ReadonlyM
 }
 
 /** Edges (and share of the step's kvar on each) a step occupies on this board. */
-function stepEdges(board: Board, channel: StepChannel): { edge: BatchEdge; share: number }[] {
+export function stepEdges(board: Board, channel: StepChannel): { edge: BatchEdge; share: number }[] {
   const ln = board.nominalLineToNeutralV;
   const ll = board.nominalLineToLineV ?? ln;
   if (isLinePair(channel)) {

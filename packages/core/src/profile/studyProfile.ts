@@ -19,6 +19,7 @@ import type { SettledShortTrial } from './settledShortTrial.js';
 import type { NeverClosedStep } from './stepsNeverClosed.js';
 import { clearRoundOff, conductorFloorA } from './intervalRoundOff.js';
 import { bankOverProfile } from './bankOverProfile.js';
+import type { ProfileBankResonance } from './profileBankResonance.js';
 import { allocateFigures, solveBatch, type BatchSolveOptions, type IntervalFigures } from './solveBatch.js';
 import { summariseFigures, type ProfileSummary, type ResolvedLimits, type SummaryContext } from './summariseFigures.js';
 import { createZoneClock, monthKeyOf } from './zoneClock.js';
@@ -160,6 +161,11 @@ export interface ProfileBankResult {
    * (the last step's need under the response threshold): the channel, the need, kvar; otherwise null.
    */
   readonly targetOutOfReach: { readonly channel: string; readonly needKvar: number; readonly words: string } | null;
+  /**
+   * The bank's supply resonance in every state its controller can reach, as `trivar correct` checks its bank
+   * (profileBankResonance.ts); null where there is no estimate (an ideal source). Absent from results written before it was kept.
+   */
+  readonly resonance?: ProfileBankResonance | null;
   readonly after: ProfileSummary;
 }
 

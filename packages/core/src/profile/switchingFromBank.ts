@@ -31,6 +31,8 @@ export interface SwitchingFromBank {
   readonly fixedNotSimulatedKvar: number;
   /** Which correction design this is, for the report to name it (set by whoever took it from a study). */
   readonly design?: BankDesign;
+  /** The steps as the correction study built them (their branches and connection): the supply resonance is checked on these, not on the simulator's placement. */
+  readonly built?: readonly BankStep[];
 }
 
 /** The correction study a simulated bank comes from: its arrangement, in the board's words, and whether it was recommended (no arrangement named). */
@@ -70,6 +72,7 @@ export function switchingFromBank(steps: readonly BankStep[], controller: Contro
   }
   return {
     steps: out,
+    built: steps,
     settings: {
       targetPf: controller.targetBand.minPf,
       responseShare: controller.settingFraction,
