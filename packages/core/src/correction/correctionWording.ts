@@ -236,8 +236,8 @@ export function resonanceSummaryClause(
     readonly resonanceHeadlineOrders: readonly number[];
     readonly resonanceStepStates: StepStateResonance | null;
   },
-  /** 'and' where the summary already has its "but" (an overload). */
-  joined: 'but' | 'and' = 'but',
+  /** 'and' where the summary already has its "but" (an overload); null for the clause alone (a headline of its own). */
+  joined: 'but' | 'and' | null = 'but',
 ): string {
   if (!v.resonanceNearHarmonic) return '';
   // Only the orders that headline (significant, able to reach the bank); the warnings name the others.
@@ -247,7 +247,8 @@ export function resonanceSummaryClause(
   const where = [...(headlines(v.resonanceNearOrders) ? ['with every step in'] : []), ...(partial.length ? [`in ${partial.length} state${partial.length === 1 ? '' : 's'} with fewer steps in`] : [])];
   const named = orders.map(ordinal);
   const list = named.length === 1 ? `the ${named[0]} harmonic` : `the ${named.slice(0, -1).join(', ')} and ${named.at(-1)} harmonics`;
-  return `; ${joined} its supply resonance lies within 10 % of ${list} ${where.join(' and ')} (see the warnings)`;
+  const clause = `its supply resonance lies within 10 % of ${list} ${where.join(' and ')} (see the warnings)`;
+  return joined === null ? clause : `; ${joined} ${clause}`;
 }
 
 /** The verdict's qualification where the CT given is below the current it must carry (ControllerSettings.ctNeeded); empty where it is not. */

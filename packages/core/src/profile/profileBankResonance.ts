@@ -90,7 +90,7 @@ export function profileBankResonance(board: Board, steps: readonly SwitchedStep[
   const matters = new Set(headlineResonanceOrders(board, equipment.flatMap((g) => g.branches)));
   const headlineOrders = [...new Set(states.states.flatMap((st) => st.nearOrders))].filter((h) => matters.has(h)).sort((a, b) => a - b);
   const clause = headlineOrders.length
-    ? resonanceSummaryClause({ resonanceNearHarmonic: true, resonanceNearOrders: allIn!.nearOrders, resonanceHeadlineOrders: headlineOrders, resonanceStepStates: states }).replace(/^; but /, '')
+    ? resonanceSummaryClause({ resonanceNearHarmonic: true, resonanceNearOrders: allIn!.nearOrders, resonanceHeadlineOrders: headlineOrders, resonanceStepStates: states }, null)
     : null;
   const anyNear = allIn!.nearOrders.length > 0 || nearPartial.length > 0;
   return {

@@ -207,6 +207,25 @@ export class NodeBounder {
 const FEW_LARGEST = 16;
 
 /**
+ * The r largest of values[0..count) into top[0..r), largest first (top[r − 1] is the r-th largest):
+ * insertion into a short list, no sort, for the small r the bounds ask for. top starts full of −Infinity
+ * so the first r values always enter.
+ */
+export function keepLargest(values: ArrayLike<number>, count: number, r: number, top: Float64Array): void {
+  top.fill(-Infinity, 0, r);
+  for (let t = 0; t < count; t++) {
+    let v = values[t]!;
+    if (v <= top[r - 1]!) continue;
+    for (let u = 0; u < r; u++)
+      if (v > top[u]!) {
+        const held = top[u]!;
+        top[u] = v;
+        v = held;
+      }
+  }
+}
+
+/**
  * The sum of the `r` largest of `values[0..count)` (all of them where r ≥ count; none where r ≤ 0). A few are
  * picked by insertion into `scratch` (at least FEW_LARGEST long), O(count·r): a move limit of a few moves on a
  * large board sorted every direction's savings (256 sorts per quantity) for the 4 it kept. May reorder `values`.
@@ -223,18 +242,7 @@ export function sumOfLargest(values: Float64Array, count: number, r: number, scr
     for (let t = count - r; t < count; t++) sum += sorted[t]!;
     return sum;
   }
-  // scratch[0..r) descending; starts full of −Infinity so the first r values always enter.
-  scratch.fill(-Infinity, 0, r);
-  for (let t = 0; t < count; t++) {
-    let v = values[t]!;
-    if (v <= scratch[r - 1]!) continue;
-    for (let u = 0; u < r; u++)
-      if (v > scratch[u]!) {
-        const held = scratch[u]!;
-        scratch[u] = v;
-        v = held;
-      }
-  }
+  keepLargest(values, count, r, scratch);
   for (let u = 0; u < r; u++) sum += scratch[u]!;
   return sum;
 }

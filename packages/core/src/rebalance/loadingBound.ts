@@ -20,7 +20,7 @@
  * arrangement: there the exact search proves the answer instead.
  */
 import { contributionOffset, largestOverload, magnitudesOf, sumQuantities, type AssignmentProblem } from './assignmentProblem.js';
-import { magnitudeBoundsWithMoveLimit } from './assignmentBounds.js';
+import { keepLargest, magnitudeBoundsWithMoveLimit } from './assignmentBounds.js';
 import type { LoadingBound } from './rebalanceResult.js';
 
 export interface LoadingBoundOptions {
@@ -86,17 +86,7 @@ export function leastLoadingBound(p: AssignmentProblem, moveLimit: number, optio
     for (let t = 0; t < movable; t++) ranked[t] = savings[byRank[t]!]!;
     let threshold: number;
     if (r <= top.length) {
-      top.fill(-Infinity, 0, r);
-      for (let t = 0; t < movable; t++) {
-        let v = ranked[t]!;
-        if (v <= top[r - 1]!) continue;
-        for (let u = 0; u < r; u++)
-          if (v > top[u]!) {
-            const held = top[u]!;
-            top[u] = v;
-            v = held;
-          }
-      }
+      keepLargest(ranked, movable, r, top);
       threshold = top[r - 1]!;
     } else threshold = ranked.subarray(0, movable).sort()[movable - r]!;
     strictlyAbove = 0;
